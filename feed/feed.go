@@ -1,0 +1,78 @@
+// Package feed turns a site and the event kinds a feed asks for into calendar
+// entries: the event catalogue. It is pure and deterministic: the same
+// configuration and window always give the same entries, with the same UIDs.
+//
+// Sub-packages render and deliver those entries: feed/ical writes RFC 5545
+// iCalendar, feed/publish writes files atomically, feed/serve serves them over
+// HTTP and feed/schedule refreshes them.
+package feed
+
+import "time"
+
+// Entry is one calendar entry: an instant (sunrise), a span (golden hour) or
+// an all-day note (the Sun does not set today).
+type Entry struct {
+	// UID is stable across rebuilds: it is derived from the feed id, the kind,
+	// the local date and the occurrence on that date, never from the computed
+	// time, so a client updates the entry in place when tomorrow's rebuild
+	// moves it by a second.
+	UID string
+	// Kind is the configured kind name, e.g. "sunrise", "golden-hour",
+	// "sun-altitude:-3", "photoperiod:12h".
+	Kind        string
+	Title       string
+	Description string
+	// Categories are plain words for filtering, e.g. {"Sun", "Sunrise"}.
+	Categories []string
+	// Start is the instant (UTC) of a timed entry. For an all-day entry it is
+	// the local date at 00:00 UTC (only its year, month and day count).
+	Start time.Time
+	// End is the end of a span (UTC); zero for an instant. For an all-day
+	// entry it is the exclusive end date at 00:00 UTC (usually Start + 1 day).
+	End time.Time
+	// AllDay marks a date-valued entry (VALUE=DATE in iCalendar).
+	AllDay bool
+	// Date is the site-local calendar date the entry belongs to, at 00:00 UTC.
+	Date time.Time
+}
+
+// Site is where a calendar's events are computed, as the feed renderers need it.
+type Site struct {
+	ID        string
+	Name      string
+	Latitude  float64 // degrees, north positive
+	Longitude float64 // degrees, east positive
+	Elevation float64 // metres above sea level
+	Location  *time.Location
+}
+
+// Calendar is one feed, ready to render: its header and its entries sorted by
+// Start then UID.
+type Calendar struct {
+	ID          string
+	Title       string
+	Description string
+	Site        Site
+	// UTC writes every timed entry in UTC ("Z") instead of the site's local
+	// time with a TZID and a generated VTIMEZONE.
+	UTC bool
+	// Color is a CSS3 colour name (RFC 7986 COLOR), may be empty.
+	Color string
+	// URL is the public https URL of the .ics file (RFC 7986 SOURCE), and
+	// PageURL the human page listing the feeds (RFC 7986 URL); both may be empty.
+	URL     string
+	PageURL string
+	// Refresh is the suggested polling interval (REFRESH-INTERVAL,
+	// X-PUBLISHED-TTL); zero leaves them out.
+	Refresh time.Duration
+	// Alarm, when positive, adds a display alarm that long before each timed entry.
+	Alarm time.Duration
+	// WindowStart and WindowEnd bound the entries (UTC); the generated
+	// VTIMEZONE covers at least this span.
+	WindowStart time.Time
+	WindowEnd   time.Time
+	// Stamp is the deterministic DTSTAMP / LAST-MODIFIED: derived from the
+	// inputs (e.g. the window start), never from the wall clock.
+	Stamp   time.Time
+	Entries []Entry
+}

@@ -1,0 +1,26 @@
+package schedule
+
+import (
+	"os/exec"
+	"strings"
+	"testing"
+)
+
+// TestDeps enforces the layering: the scheduler takes a function, so it never
+// imports the feed packages; its only module outside the standard library is
+// robfig/cron.
+func TestDeps(t *testing.T) {
+	out, err := exec.Command("go", "list", "-deps", "-f", "{{if not .Standard}}{{.ImportPath}}{{end}}", ".").Output()
+	if err != nil {
+		t.Skip("go list unavailable:", err)
+	}
+	for _, p := range strings.Fields(string(out)) {
+		switch {
+		case p == "heliocal/feed/schedule", p == "github.com/robfig/cron/v3":
+		case strings.HasPrefix(p, "heliocal/"):
+			t.Errorf("feed/schedule imports %s: it must take a function instead", p)
+		default:
+			t.Errorf("feed/schedule imports %s: only the standard library and robfig/cron are allowed", p)
+		}
+	}
+}

@@ -1,0 +1,216 @@
+// Package schedule runs a refresh function on a cron expression: the nightly
+// rebuild of heliocal's feeds. It wraps github.com/robfig/cron/v3 and takes a
+// plain func(ctx) error, so it knows nothing of feeds.
+//
+// Runs never overlap (a run still going when the next is due is skipped), a
+// panicking run is recovered and logged, and Stop waits, bounded by a
+// context, for a run in progress.
+package schedule
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"log/slog"
+	"sync"
+	"time"
+
+	"github.com/robfig/cron/v3"
+)
+
+// DefaultSpec is the default refresh schedule: every night at 03:15.
+const DefaultSpec = "15 3 * * *"
+
+// Func is the work a Scheduler runs. The context is cancelled when Stop gives
+// up waiting for it.
+type Func func(ctx context.Context) error
+
+// Options configure a Scheduler. The zero value runs at DefaultSpec in the
+// server's local zone and logs nowhere.
+type Options struct {
+	// Spec is a five-field cron expression (minute hour day-of-month month
+	// day-of-week), or a descriptor such as "@daily" or "@every 6h".
+	// Empty means DefaultSpec.
+	Spec string
+	// Location is the zone Spec is read in; nil means time.Local.
+	Location *time.Location
+	// Logger receives one line per run and the scheduler's own messages
+	// (the latter at debug level); nil discards them.
+	Logger *slog.Logger
+}
+
+// Scheduler runs one Func on a cron schedule.
+type Scheduler struct {
+	fn       Func
+	spec     string
+	loc      *time.Location
+	log      *slog.Logger
+	sched    cron.Schedule
+	cron     *cron.Cron
+	mu       sync.Mutex
+	started  bool
+	stopped  bool
+	cancel   context.CancelFunc
+	runCtx   context.Context
+	lastErr  error
+	lastDone time.Time
+}
+
+// parser accepts the standard five fields and descriptors, as cron.New does
+// by default; it is spelled out so Validate and New agree.
+var parser = cron.NewParser(cron.Minute | cron.Hour | cron.Dom | cron.Month | cron.Dow | cron.Descriptor)
+
+// Validate reports whether spec is a cron expression the Scheduler accepts.
+// The error names the expression.
+func Validate(spec string) error {
+	if _, err := parser.Parse(spec); err != nil {
+		return fmt.Errorf("schedule: invalid cron expression %q: %w", spec, err)
+	}
+	return nil
+}
+
+// Interval returns the time between the next two runs of spec after from, in
+// loc (nil means time.Local): a hint for how long a refreshed result stays
+// current, e.g. 24h for DefaultSpec.
+func Interval(spec string, loc *time.Location, from time.Time) (time.Duration, error) {
+	if spec == "" {
+		spec = DefaultSpec
+	}
+	s, err := parser.Parse(spec)
+	if err != nil {
+		return 0, fmt.Errorf("schedule: invalid cron expression %q: %w", spec, err)
+	}
+	if loc == nil {
+		loc = time.Local
+	}
+	a := s.Next(from.In(loc))
+	b := s.Next(a)
+	if a.IsZero() || b.IsZero() {
+		return 0, fmt.Errorf("schedule: cron expression %q never runs", spec)
+	}
+	return b.Sub(a), nil
+}
+
+// New returns a Scheduler for fn. It checks the expression but starts
+// nothing; call Start.
+func New(fn Func, opts Options) (*Scheduler, error) {
+	if fn == nil {
+		return nil, errors.New("schedule: nil function")
+	}
+	spec := opts.Spec
+	if spec == "" {
+		spec = DefaultSpec
+	}
+	sched, err := parser.Parse(spec)
+	if err != nil {
+		return nil, fmt.Errorf("schedule: invalid cron expression %q: %w", spec, err)
+	}
+	loc := opts.Location
+	if loc == nil {
+		loc = time.Local
+	}
+	log := opts.Logger
+	if log == nil {
+		log = slog.New(slog.DiscardHandler)
+	}
+	s := &Scheduler{fn: fn, spec: spec, loc: loc, log: log, sched: sched}
+	cl := cronLogger{log}
+	s.cron = cron.New(
+		cron.WithLocation(loc),
+		cron.WithParser(parser),
+		cron.WithLogger(cl),
+		cron.WithChain(cron.Recover(cl), cron.SkipIfStillRunning(cl)),
+	)
+	s.cron.Schedule(sched, cron.FuncJob(s.run))
+	return s, nil
+}
+
+// Spec returns the cron expression in use.
+func (s *Scheduler) Spec() string { return s.spec }
+
+// Location returns the zone the expression is read in.
+func (s *Scheduler) Location() *time.Location { return s.loc }
+
+// Start begins scheduling. Runs receive a context derived from ctx without
+// its cancellation: cancelling ctx does not abort a run (Stop decides that),
+// but its values are kept. Start after Start or Stop does nothing.
+func (s *Scheduler) Start(ctx context.Context) {
+	s.mu.Lock()
+	defer s.mu.Unlock()
+	if s.started || s.stopped {
+		return
+	}
+	s.started = true
+	s.runCtx, s.cancel = context.WithCancel(context.WithoutCancel(ctx))
+	s.cron.Start()
+}
+
+// Stop ends scheduling and waits for a run in progress to finish. If ctx ends
+// first, Stop cancels the run's context and returns ctx's error without
+// waiting further. Stop is safe to call more than once and before Start.
+func (s *Scheduler) Stop(ctx context.Context) error {
+	s.mu.Lock()
+	started := s.started
+	s.stopped = true
+	cancel := s.cancel
+	s.mu.Unlock()
+	if !started {
+		return nil
+	}
+	done := s.cron.Stop()
+	select {
+	case <-done.Done():
+		cancel()
+		return nil
+	case <-ctx.Done():
+		cancel()
+		s.log.Warn("schedule: stopped without waiting for the running refresh", "err", ctx.Err())
+		return fmt.Errorf("schedule: waiting for the running refresh: %w", ctx.Err())
+	}
+}
+
+// Next returns the next time the function is due, in the schedule's zone.
+// Before Start it is computed from the current time.
+func (s *Scheduler) Next() time.Time {
+	return s.sched.Next(time.Now().In(s.loc))
+}
+
+// Last returns when the latest run finished, and its error (zero time if
+// none has finished yet).
+func (s *Scheduler) Last() (time.Time, error) {
+	s.mu.Lock()
+	defer s.mu.Unlock()
+	return s.lastDone, s.lastErr
+}
+
+// run is the cron job: one call of fn, logged with its duration.
+func (s *Scheduler) run() {
+	s.mu.Lock()
+	ctx := s.runCtx
+	s.mu.Unlock()
+	start := time.Now()
+	err := s.fn(ctx)
+	d := time.Since(start)
+	s.mu.Lock()
+	s.lastDone, s.lastErr = time.Now(), err
+	s.mu.Unlock()
+	next := s.Next()
+	if err != nil {
+		s.log.Error("scheduled refresh failed", "err", err, "duration", d, "next_run", next)
+		return
+	}
+	s.log.Info("scheduled refresh done", "duration", d, "next_run", next)
+}
+
+// cronLogger adapts a slog.Logger to cron.Logger (whose default prints to
+// standard output). cron's routine messages go to debug level; its errors
+// (a recovered panic) to error level.
+type cronLogger struct{ l *slog.Logger }
+
+func (c cronLogger) Info(msg string, kv ...any) {
+	c.l.Debug("cron: "+msg, kv...)
+}
+
+func (c cronLogger) Error(err error, msg string, kv ...any) {
+	c.l.Error("cron: "+msg, append([]any{"err", err}, kv...)...)
+}

@@ -1,0 +1,282 @@
+package schedule
+
+import (
+	"bytes"
+	"context"
+	"errors"
+	"log/slog"
+	"strings"
+	"sync"
+	"sync/atomic"
+	"testing"
+	"testing/synctest"
+	"time"
+)
+
+// Inside a synctest bubble the clock starts at 2000-01-01 00:00:00 UTC and
+// only moves when every goroutine is blocked, so these tests run instantly
+// and never depend on the machine's speed.
+
+func TestRunsAtDefaultSpec(t *testing.T) {
+	synctest.Test(t, func(t *testing.T) {
+		var runs []time.Time
+		var mu sync.Mutex
+		s, err := New(func(ctx context.Context) error {
+			mu.Lock()
+			runs = append(runs, time.Now().UTC())
+			mu.Unlock()
+			return nil
+		}, Options{Location: time.UTC})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got, want := s.Spec(), "15 3 * * *"; got != want {
+			t.Errorf("Spec() = %q, want %q", got, want)
+		}
+		want := time.Date(2000, 1, 1, 3, 15, 0, 0, time.UTC)
+		if got := s.Next(); !got.Equal(want) {
+			t.Errorf("Next() before Start = %v, want %v", got, want)
+		}
+		s.Start(t.Context())
+		time.Sleep(52 * time.Hour) // three nights at 03:15
+		synctest.Wait()
+		if err := s.Stop(t.Context()); err != nil {
+			t.Fatal(err)
+		}
+		mu.Lock()
+		defer mu.Unlock()
+		wantRuns := []time.Time{want, want.Add(24 * time.Hour), want.Add(48 * time.Hour)}
+		if len(runs) != len(wantRuns) {
+			t.Fatalf("runs = %v, want %v", runs, wantRuns)
+		}
+		for i := range runs {
+			if !runs[i].Equal(wantRuns[i]) {
+				t.Errorf("run %d at %v, want %v", i, runs[i], wantRuns[i])
+			}
+		}
+	})
+}
+
+func TestLocation(t *testing.T) {
+	// 03:15 in New York in January is 08:15 UTC (EST is UTC−5, tz database).
+	ny, err := time.LoadLocation("America/New_York")
+	if err != nil {
+		t.Skip("tz database not available:", err)
+	}
+	synctest.Test(t, func(t *testing.T) {
+		var at atomic.Value
+		s, err := New(func(ctx context.Context) error {
+			at.Store(time.Now().UTC())
+			return nil
+		}, Options{Location: ny})
+		if err != nil {
+			t.Fatal(err)
+		}
+		want := time.Date(2000, 1, 1, 8, 15, 0, 0, time.UTC)
+		if got := s.Next(); !got.Equal(want) || got.Location() != ny {
+			t.Errorf("Next() = %v, want %v in %v", got, want, ny)
+		}
+		s.Start(t.Context())
+		time.Sleep(9 * time.Hour)
+		synctest.Wait()
+		s.Stop(t.Context())
+		if got, _ := at.Load().(time.Time); !got.Equal(want) {
+			t.Errorf("ran at %v, want %v", got, want)
+		}
+	})
+}
+
+func TestSkipsWhileRunningAndStopWaits(t *testing.T) {
+	synctest.Test(t, func(t *testing.T) {
+		release := make(chan struct{})
+		var started, finished atomic.Int32
+		s, err := New(func(ctx context.Context) error {
+			started.Add(1)
+			<-release
+			finished.Add(1)
+			return nil
+		}, Options{Spec: "@every 1m", Location: time.UTC})
+		if err != nil {
+			t.Fatal(err)
+		}
+		s.Start(t.Context())
+		time.Sleep(5*time.Minute + time.Second) // due five times, the first still running
+		synctest.Wait()
+		if n := started.Load(); n != 1 {
+			t.Fatalf("started %d runs while the first was still running, want 1", n)
+		}
+
+		stopped := make(chan error, 1)
+		go func() { stopped <- s.Stop(context.Background()) }()
+		synctest.Wait()
+		select {
+		case err := <-stopped:
+			t.Fatalf("Stop returned %v while a run was in progress", err)
+		default:
+		}
+		close(release)
+		if err := <-stopped; err != nil {
+			t.Fatalf("Stop = %v, want nil", err)
+		}
+		if finished.Load() != 1 {
+			t.Fatal("Stop returned before the run finished")
+		}
+		time.Sleep(time.Hour)
+		synctest.Wait()
+		if n := started.Load(); n != 1 {
+			t.Errorf("ran %d times after Stop, want no more runs", n)
+		}
+	})
+}
+
+func TestStopBoundedCancelsRun(t *testing.T) {
+	synctest.Test(t, func(t *testing.T) {
+		cancelled := make(chan struct{})
+		s, err := New(func(ctx context.Context) error {
+			<-ctx.Done()
+			close(cancelled)
+			return ctx.Err()
+		}, Options{Spec: "@every 1m", Location: time.UTC})
+		if err != nil {
+			t.Fatal(err)
+		}
+		s.Start(t.Context())
+		time.Sleep(61 * time.Second)
+		synctest.Wait()
+		ctx, cancel := context.WithTimeout(context.Background(), 10*time.Second)
+		defer cancel()
+		begin := time.Now()
+		err = s.Stop(ctx)
+		if !errors.Is(err, context.DeadlineExceeded) {
+			t.Fatalf("Stop = %v, want deadline exceeded", err)
+		}
+		if waited := time.Since(begin); waited != 10*time.Second {
+			t.Errorf("Stop waited %v, want the 10s bound", waited)
+		}
+		<-cancelled // the run saw its context cancelled
+	})
+}
+
+func TestStartContextCancelDoesNotAbortRun(t *testing.T) {
+	synctest.Test(t, func(t *testing.T) {
+		release := make(chan struct{})
+		var runErr atomic.Value
+		s, _ := New(func(ctx context.Context) error {
+			<-release
+			runErr.Store(errors.Join(ctx.Err()))
+			return nil
+		}, Options{Spec: "@every 1m", Location: time.UTC})
+		ctx, cancel := context.WithCancel(t.Context())
+		s.Start(ctx)
+		time.Sleep(61 * time.Second)
+		synctest.Wait()
+		cancel() // the server is shutting down: the run must be allowed to finish
+		close(release)
+		if err := s.Stop(context.Background()); err != nil {
+			t.Fatal(err)
+		}
+		if err, _ := runErr.Load().(error); err != nil {
+			t.Errorf("run context was cancelled with the start context: %v", err)
+		}
+	})
+}
+
+func TestFailureAndPanicAreLogged(t *testing.T) {
+	synctest.Test(t, func(t *testing.T) {
+		var buf bytes.Buffer
+		var mu sync.Mutex
+		log := slog.New(slog.NewTextHandler(&lockedWriter{w: &buf, mu: &mu}, nil))
+		var n atomic.Int32
+		s, _ := New(func(ctx context.Context) error {
+			if n.Add(1) == 1 {
+				return errors.New("site table unreadable")
+			}
+			panic("boom")
+		}, Options{Spec: "@every 1h", Location: time.UTC, Logger: log})
+		s.Start(t.Context())
+		time.Sleep(time.Hour + time.Second)
+		synctest.Wait()
+		if at, err := s.Last(); err == nil || at.IsZero() {
+			t.Errorf("Last() = %v, %v; want the failure recorded", at, err)
+		}
+		time.Sleep(time.Hour)
+		synctest.Wait()
+		s.Stop(t.Context())
+		mu.Lock()
+		out := buf.String()
+		mu.Unlock()
+		for _, want := range []string{
+			`msg="scheduled refresh failed" err="site table unreadable"`,
+			`level=ERROR msg="cron: panic" err=boom`,
+		} {
+			if !strings.Contains(out, want) {
+				t.Errorf("log lacks %q:\n%s", want, out)
+			}
+		}
+		if strings.Contains(out, "cron: wake") || strings.Contains(out, "cron: start") {
+			t.Errorf("cron's routine messages logged at info level or above:\n%s", out)
+		}
+		if n.Load() != 2 {
+			t.Errorf("ran %d times, want 2 (a panic must not stop the schedule)", n.Load())
+		}
+	})
+}
+
+type lockedWriter struct {
+	w  *bytes.Buffer
+	mu *sync.Mutex
+}
+
+func (l *lockedWriter) Write(p []byte) (int, error) {
+	l.mu.Lock()
+	defer l.mu.Unlock()
+	return l.w.Write(p)
+}
+
+func TestInvalidSpec(t *testing.T) {
+	for _, spec := range []string{"61 3 * * *", "15 3 * *", "every night", "@fortnightly"} {
+		if _, err := New(func(context.Context) error { return nil }, Options{Spec: spec}); err == nil ||
+			!strings.Contains(err.Error(), spec) {
+			t.Errorf("New(%q) error = %v, want one naming the expression", spec, err)
+		}
+		if err := Validate(spec); err == nil {
+			t.Errorf("Validate(%q) = nil", spec)
+		}
+	}
+	if err := Validate(DefaultSpec); err != nil {
+		t.Errorf("Validate(DefaultSpec) = %v", err)
+	}
+	if _, err := New(nil, Options{}); err == nil {
+		t.Error("New(nil) = nil error")
+	}
+}
+
+func TestInterval(t *testing.T) {
+	from := time.Date(2026, 6, 1, 12, 0, 0, 0, time.UTC)
+	for _, tc := range []struct {
+		spec string
+		want time.Duration
+	}{
+		{"", 24 * time.Hour},
+		{"15 3 * * *", 24 * time.Hour},
+		{"0 */6 * * *", 6 * time.Hour},
+		{"@every 90m", 90 * time.Minute},
+		{"0 4 * * 1", 7 * 24 * time.Hour},
+	} {
+		got, err := Interval(tc.spec, time.UTC, from)
+		if err != nil || got != tc.want {
+			t.Errorf("Interval(%q) = %v, %v; want %v", tc.spec, got, err, tc.want)
+		}
+	}
+}
+
+func TestStopBeforeStartAndTwice(t *testing.T) {
+	s, _ := New(func(context.Context) error { return nil }, Options{})
+	if err := s.Stop(t.Context()); err != nil {
+		t.Fatal(err)
+	}
+	s.Start(t.Context()) // refused after Stop
+	if err := s.Stop(t.Context()); err != nil {
+		t.Fatal(err)
+	}
+}

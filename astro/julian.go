@@ -1,0 +1,69 @@
+package astro
+
+import (
+	"math"
+	"time"
+)
+
+// Julian day numbers (Meeus, Astronomical Algorithms 2nd ed., ch. 7).
+//
+// A Julian day (JD) counts days and fractions from noon, 1 January 4713 BC
+// (Julian calendar). JD 2440587.5 is 1970-01-01T00:00:00 UTC, which lets the
+// conversion go through Unix time instead of calendar arithmetic; the result
+// equals Meeus's formula 7.1 for every Gregorian date.
+
+const (
+	jdUnixEpoch = 2440587.5 // JD of 1970-01-01T00:00:00 UTC
+	// J2000 is the Julian day of the standard epoch J2000.0,
+	// 2000-01-01 12:00 TT (Meeus p. 62).
+	J2000 = 2451545.0
+	// julianCentury is the number of days in a Julian century.
+	julianCentury = 36525.0
+	// julianMillennium is the number of days in a Julian millennium.
+	julianMillennium = 365250.0
+	secondsPerDay    = 86400.0
+)
+
+// JulianDay returns the Julian day of the instant t, read on the scale of t
+// itself: for a time.Time (which counts UTC) that is the Julian day of
+// Universal Time. The result is exact to the float64 resolution, about 40 µs
+// near the present epoch.
+func JulianDay(t time.Time) float64 {
+	s := t.Unix()
+	days := s / 86400
+	rem := s % 86400
+	if rem < 0 {
+		rem += 86400
+		days--
+	}
+	return jdUnixEpoch + float64(days) + (float64(rem)+float64(t.Nanosecond())*1e-9)/secondsPerDay
+}
+
+// TimeFromJulianDay returns the UTC instant of the Julian day jd (the inverse
+// of JulianDay), rounded to the nearest microsecond, which is below the
+// float64 resolution of jd.
+func TimeFromJulianDay(jd float64) time.Time {
+	d := jd - jdUnixEpoch
+	whole := math.Floor(d)
+	frac := d - whole
+	us := math.Round(frac * secondsPerDay * 1e6)
+	return time.Unix(int64(whole)*86400, 0).Add(time.Duration(us) * time.Microsecond).UTC()
+}
+
+// unixToJD converts Unix seconds (float) to a Julian day.
+func unixToJD(sec float64) float64 { return jdUnixEpoch + sec/secondsPerDay }
+
+// jdToUnix converts a Julian day to Unix seconds (float).
+func jdToUnix(jd float64) float64 { return (jd - jdUnixEpoch) * secondsPerDay }
+
+// unixSeconds returns t as float Unix seconds (resolution ~0.2 µs today).
+func unixSeconds(t time.Time) float64 {
+	return float64(t.Unix()) + float64(t.Nanosecond())*1e-9
+}
+
+// timeFromUnix converts float Unix seconds to a UTC time rounded to the microsecond.
+func timeFromUnix(sec float64) time.Time {
+	whole := math.Floor(sec)
+	us := math.Round((sec - whole) * 1e6)
+	return time.Unix(int64(whole), 0).Add(time.Duration(us) * time.Microsecond).UTC()
+}

@@ -11,9 +11,6 @@ type elpTerm struct {
 	a, p0, p1, p2, p3, p4 float64
 }
 
-// elpArcsec is one arcsecond in radians.
-const elpArcsec = math.Pi / (180 * 3600)
-
 // elpSum returns Σₚ Tᵖ · Σᵢ Aᵢ sin(φᵢ(T)) for one coordinate's series.
 func elpSum(s *[4][]elpTerm, t, t2, t3, t4 float64) float64 {
 	var sum [4]float64
@@ -43,8 +40,8 @@ func elpEval(jde float64, l, b, r *[4][]elpTerm) (lon, lat, dist float64) {
 	t4 := t3 * t
 	w1 := elpW1[0] + t*(elpW1[1]+t*(elpW1[2]+t*(elpW1[3]+t*elpW1[4])))
 	pA := (5029.0966-0.29965)*t + 1.1120*t2 + 0.000077*t3 - 0.00002353*t4
-	lon = w1 + (elpSum(l, t, t2, t3, t4)+pA)*elpArcsec
-	lat = elpSum(b, t, t2, t3, t4) * elpArcsec
+	lon = w1 + (elpSum(l, t, t2, t3, t4)+pA)*arcsec2rad
+	lat = elpSum(b, t, t2, t3, t4) * arcsec2rad
 	dist = elpSum(r, t, t2, t3, t4)
 	return lon, lat, dist
 }

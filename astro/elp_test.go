@@ -50,14 +50,6 @@ func loadCompleteELP(tb testing.TB) (l, b, r [4][]elpTerm) {
 	return l, b, r
 }
 
-func normDeg(x float64) float64 {
-	x = math.Mod(x, 360)
-	if x < 0 {
-		x += 360
-	}
-	return x
-}
-
 // TestELPCheckValue: the check value of the series' documentation
 // (shared reference series README, complete ELP/MPP02 DE405 series):
 // JDE 2448724.5 (1992 April 12.0 TD) → λ = 133.162318°, β = −3.229202°,
@@ -76,7 +68,7 @@ func TestELPCheckValue(t *testing.T) {
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			lon, lat, dist := tc.lon()
-			lonDeg, latDeg := normDeg(lon*180/math.Pi), lat*180/math.Pi
+			lonDeg, latDeg := norm360(lon*180/math.Pi), lat*180/math.Pi
 			if d := math.Abs(lonDeg - 133.162318); d > tc.tolDeg {
 				t.Errorf("λ = %.7f°, want 133.162318° (off %.3f″)", lonDeg, d*3600)
 			}
@@ -103,8 +95,8 @@ func TestELPTruncation(t *testing.T) {
 		jde := 2378496.5 + float64(i)*(146097.0/n) + 0.137*float64(i%11)
 		l1, b1, r1 := elpEval(jde, &l, &b, &r)
 		l2, b2, r2 := elpMoon(jde)
-		dLon = append(dLon, math.Abs(l1-l2)/elpArcsec)
-		maxLat = math.Max(maxLat, math.Abs(b1-b2)/elpArcsec)
+		dLon = append(dLon, math.Abs(l1-l2)/arcsec2rad)
+		maxLat = math.Max(maxLat, math.Abs(b1-b2)/arcsec2rad)
 		maxDist = math.Max(maxDist, math.Abs(r1-r2))
 	}
 	sort.Float64s(dLon)

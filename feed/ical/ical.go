@@ -27,9 +27,9 @@
 // and the file carries a VTIMEZONE for that zone generated from Go's time zone
 // database, with one observance per real offset or abbreviation change across
 // the feed's window (plus a margin) and no recurrence rules. A local time that
-// occurs twice (when clocks go back) is, by RFC 5545 §3.3.5, the first of the
-// two; an entry at the second one is written in UTC instead, so every value
-// names exactly the computed instant. With Calendar.UTC, or a site zone that
+// occurs twice (in the hour that repeats when clocks go back) is written in
+// UTC instead: RFC 5545 §3.3.5 reads it as the first occurrence but parsers
+// differ, and a UTC value names exactly the computed instant everywhere. With Calendar.UTC, or a site zone that
 // is UTC itself, every timed value is written in UTC ("Z") with no TZID and no
 // VTIMEZONE. All-day entries are DATE values with an exclusive DTEND.
 //
@@ -329,11 +329,11 @@ func (w *writer) event(e *feed.Entry) (*ics.VEvent, error) {
 // setTime sets DTSTART or DTEND of a timed entry to t (UTC). In local mode
 // the value is the site's wall clock with TZID; the library's SetStartAt
 // cannot be used, since it writes UTC with a trailing "Z" even with a TZID.
-// A wall clock that occurs twice is written in UTC (see isSecondOccurrence).
+// A wall clock that occurs twice is written in UTC (see isAmbiguous).
 // When the TZID needs DQUOTEs the property is returned as a pre-formatted
 // line instead of being set, as the library would backslash-escape it.
 func (w *writer) setTime(ev *ics.VEvent, prop ics.ComponentProperty, t time.Time) []ics.Component {
-	if w.loc == nil || isSecondOccurrence(t, w.loc) {
+	if w.loc == nil || isAmbiguous(t, w.loc) {
 		ev.SetProperty(prop, t.Format(utcLayout))
 		return nil
 	}
@@ -350,25 +350,34 @@ const (
 	localLayout = "20060102T150405"
 )
 
-// isSecondOccurrence reports whether the wall clock of t in loc also names an
-// earlier instant (t is in the repeated hour after clocks go back). RFC 5545
-// §3.3.5 resolves such a local time to its first occurrence, so t must not be
-// written as local time.
-func isSecondOccurrence(t time.Time, loc *time.Location) bool {
+// isAmbiguous reports whether the wall clock of t in loc also names another
+// instant: t is in the hour that repeats when clocks go back, either its
+// first or its second occurrence. RFC 5545 §3.3.5 reads such a local time as
+// the first occurrence, but parsers differ (Go's time.Date, and so go-ical,
+// picks the second one), so t is written in UTC instead.
+func isAmbiguous(t time.Time, loc *time.Location) bool {
 	lt := t.In(loc)
 	_, off := lt.Zone()
-	start, _ := lt.ZoneBounds()
-	if start.IsZero() {
-		return false
+	start, end := lt.ZoneBounds()
+	if !start.IsZero() {
+		// The same wall clock under the previous offset, if that is larger,
+		// is an earlier instant; it is real if it falls before the change.
+		if _, prev := start.Add(-time.Second).In(loc).Zone(); prev > off {
+			if t.Add(time.Duration(off-prev) * time.Second).Before(start) {
+				return true
+			}
+		}
 	}
-	_, prevOff := start.Add(-time.Second).In(loc).Zone()
-	if prevOff <= off {
-		return false
+	if !end.IsZero() {
+		// The same wall clock under the next offset, if that is smaller, is
+		// a later instant; it is real if it falls on or after the change.
+		if _, next := end.In(loc).Zone(); next < off {
+			if !t.Add(time.Duration(off-next) * time.Second).Before(end) {
+				return true
+			}
+		}
 	}
-	// The same wall clock under the previous offset is an earlier instant;
-	// it is a real occurrence if it falls before the change.
-	earlier := t.Add(time.Duration(off-prevOff) * time.Second)
-	return earlier.Before(start)
+	return false
 }
 
 // dateOf returns the calendar date of an all-day entry's field, which holds

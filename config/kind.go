@@ -1,6 +1,12 @@
 package config
 
-import "time"
+import (
+	"fmt"
+	"math"
+	"strconv"
+	"strings"
+	"time"
+)
 
 // Kind is one event kind of the configuration vocabulary, parsed from its
 // written form: "sunrise", "sun-altitude:-3.5", "photoperiod:12h30m".
@@ -11,4 +17,305 @@ type Kind struct {
 	Altitude float64
 	// DayLength is the threshold for "photoperiod:<duration>".
 	DayLength time.Duration
+}
+
+// Kind base names that take a parameter after a colon.
+const (
+	// KindSunAltitude is written "sun-altitude:<deg>": the instants the Sun's
+	// centre crosses the altitude <deg> (−90 < deg < 90), rising and setting.
+	KindSunAltitude = "sun-altitude"
+	// KindPhotoperiod is written "photoperiod:<duration>": the dates on which
+	// the day length (sunrise to sunset) crosses <duration> (0 < d < 24h),
+	// rising or falling.
+	KindPhotoperiod = "photoperiod"
+)
+
+// Kind families, returned by Kind.Family.
+const (
+	FamilySun      = "sun"      // sunrise, sunset, solar noon, custom altitude, photoperiod, daily summary
+	FamilyTwilight = "twilight" // civil, nautical, astronomical twilight, golden and blue hour
+	FamilyYear     = "year"     // equinoxes, solstices, cross-quarter days, perihelion, aphelion
+	FamilyMoon     = "moon"     // phases, moonrise, moonset, transit, dark-sky windows
+)
+
+type kindFlags uint8
+
+const (
+	flagSpan   kindFlags = 1 << iota // an interval with a start and an end
+	flagMoon                         // needs the Moon's position
+	flagYearly                       // a few instants a year or a month, not one per day
+	flagParam                        // written with ":<parameter>"
+)
+
+type kindDef struct {
+	name    string
+	family  string
+	flags   kindFlags
+	members []string // for group kinds: the kinds they stand for
+	doc     string
+}
+
+// kindTable is the whole vocabulary, in the order of KindNames.
+var kindTable = []kindDef{
+	{name: "sunrise", family: FamilySun, doc: "upper limb of the Sun on the horizon in the morning (standard refraction)"},
+	{name: "sunset", family: FamilySun, doc: "upper limb of the Sun on the horizon in the evening"},
+	{name: "solar-noon", family: FamilySun, doc: "the Sun crosses the meridian, its highest point of the day"},
+	{name: "civil-dawn", family: FamilyTwilight, doc: "start of morning civil twilight (Sun 6° below the horizon)"},
+	{name: "civil-dusk", family: FamilyTwilight, doc: "end of evening civil twilight (Sun 6° below the horizon)"},
+	{name: "nautical-dawn", family: FamilyTwilight, doc: "start of morning nautical twilight (Sun 12° below the horizon)"},
+	{name: "nautical-dusk", family: FamilyTwilight, doc: "end of evening nautical twilight (Sun 12° below the horizon)"},
+	{name: "astronomical-dawn", family: FamilyTwilight, doc: "start of morning astronomical twilight (Sun 18° below the horizon)"},
+	{name: "astronomical-dusk", family: FamilyTwilight, doc: "end of evening astronomical twilight (Sun 18° below the horizon)"},
+	{name: "golden-hour", family: FamilyTwilight, flags: flagSpan, doc: "spans, morning and evening, while the Sun is between −4° and 6° altitude"},
+	{name: "blue-hour", family: FamilyTwilight, flags: flagSpan, doc: "spans, morning and evening, while the Sun is between −6° and −4° altitude"},
+	{name: KindSunAltitude, family: FamilySun, flags: flagParam, doc: "the Sun's centre crosses <deg> degrees of altitude, rising and setting (−90 < deg < 90)"},
+	{name: "march-equinox", family: FamilyYear, flags: flagYearly, doc: "apparent solar longitude 0°"},
+	{name: "june-solstice", family: FamilyYear, flags: flagYearly, doc: "apparent solar longitude 90°"},
+	{name: "september-equinox", family: FamilyYear, flags: flagYearly, doc: "apparent solar longitude 180°"},
+	{name: "december-solstice", family: FamilyYear, flags: flagYearly, doc: "apparent solar longitude 270°"},
+	{name: "seasons", family: FamilyYear, flags: flagYearly, members: []string{"march-equinox", "june-solstice", "september-equinox", "december-solstice"}, doc: "the two equinoxes and the two solstices"},
+	{name: "cross-quarter", family: FamilyYear, flags: flagYearly, doc: "the four instants at apparent solar longitude 45°, 135°, 225° and 315°, halfway between equinoxes and solstices"},
+	{name: "perihelion", family: FamilyYear, flags: flagYearly, doc: "the Earth at its least distance from the Sun"},
+	{name: "aphelion", family: FamilyYear, flags: flagYearly, doc: "the Earth at its greatest distance from the Sun"},
+	{name: KindPhotoperiod, family: FamilySun, flags: flagParam, doc: "the dates on which day length crosses <duration>, rising or falling (0 < duration < 24h)"},
+	{name: "daily-summary", family: FamilySun, doc: "an all-day entry per day: sunrise–sunset, day length, twilight"},
+	{name: "new-moon", family: FamilyMoon, flags: flagMoon | flagYearly, doc: "apparent geocentric longitude of the Moon equals the Sun's"},
+	{name: "first-quarter", family: FamilyMoon, flags: flagMoon | flagYearly, doc: "Moon 90° east of the Sun"},
+	{name: "full-moon", family: FamilyMoon, flags: flagMoon | flagYearly, doc: "Moon opposite the Sun"},
+	{name: "last-quarter", family: FamilyMoon, flags: flagMoon | flagYearly, doc: "Moon 90° west of the Sun"},
+	{name: "moon-phases", family: FamilyMoon, flags: flagMoon | flagYearly, members: []string{"new-moon", "first-quarter", "full-moon", "last-quarter"}, doc: "the four principal phases"},
+	{name: "moonrise", family: FamilyMoon, flags: flagMoon, doc: "upper limb of the Moon on the horizon, rising"},
+	{name: "moonset", family: FamilyMoon, flags: flagMoon, doc: "upper limb of the Moon on the horizon, setting"},
+	{name: "moon-transit", family: FamilyMoon, flags: flagMoon, doc: "the Moon crosses the meridian"},
+	{name: "dark-window", family: FamilyMoon, flags: flagMoon | flagSpan, doc: "spans of astronomical night with the Moon below the horizon (or dimmer than max_illumination)"},
+}
+
+var kindIndex = func() map[string]*kindDef {
+	m := make(map[string]*kindDef, len(kindTable))
+	for i := range kindTable {
+		m[kindTable[i].name] = &kindTable[i]
+	}
+	return m
+}()
+
+// KindNames lists every kind base name of the configuration file, in the
+// order the documentation gives them. "sun-altitude" and "photoperiod" are
+// written with a parameter ("sun-altitude:-3.5", "photoperiod:12h30m"); the
+// others stand alone. "seasons" and "moon-phases" are groups (see
+// Kind.Members). KindExamples holds one parseable written form per name.
+var KindNames = func() []string {
+	names := make([]string, len(kindTable))
+	for i, d := range kindTable {
+		names[i] = d.name
+	}
+	return names
+}()
+
+// KindExamples holds one valid written form for each entry of KindNames, in
+// the same order: the name itself, or the name with an example parameter.
+var KindExamples = func() []string {
+	ex := make([]string, len(kindTable))
+	for i, d := range kindTable {
+		switch d.name {
+		case KindSunAltitude:
+			ex[i] = "sun-altitude:-3.5"
+		case KindPhotoperiod:
+			ex[i] = "photoperiod:12h30m"
+		default:
+			ex[i] = d.name
+		}
+	}
+	return ex
+}()
+
+// KindDoc returns the one-line description of a kind base name, or "" when
+// the name is unknown.
+func KindDoc(name string) string {
+	if d, ok := kindIndex[name]; ok {
+		return d.doc
+	}
+	return ""
+}
+
+// KindError reports a kind that cannot be parsed.
+type KindError struct {
+	Value string // the text as written
+	Msg   string // what is wrong
+	Hint  string // a suggestion, may be empty
+}
+
+func (e *KindError) Error() string {
+	s := fmt.Sprintf("%s %q", e.Msg, e.Value)
+	if e.Hint != "" {
+		s += " (" + e.Hint + ")"
+	}
+	return s
+}
+
+// ParseKind parses the written form of a kind: a name from KindNames, or
+// "sun-altitude:<deg>" (−90 < deg < 90) or "photoperiod:<duration>"
+// (0 < duration < 24h, Go duration syntax such as "14h30m"). Case and
+// surrounding spaces are ignored. ParseKind(k.String()) == k for every kind
+// it returns.
+func ParseKind(s string) (Kind, error) {
+	text := strings.ToLower(strings.TrimSpace(s))
+	base, param, hasParam := strings.Cut(text, ":")
+	base = strings.TrimSpace(base)
+	param = strings.TrimSpace(param)
+	d, ok := kindIndex[base]
+	if !ok {
+		hint := ""
+		if near := closest(base, KindNames); near != "" {
+			sugg := near
+			if kindIndex[near].flags&flagParam != 0 {
+				sugg = exampleFor(near)
+				if hasParam && param != "" {
+					sugg = near + ":" + param
+				}
+			}
+			hint = fmt.Sprintf("did you mean %q?", sugg)
+		} else {
+			hint = "known kinds: " + strings.Join(KindNames, ", ")
+		}
+		return Kind{}, &KindError{Value: s, Msg: "unknown kind", Hint: hint}
+	}
+	if d.flags&flagParam == 0 {
+		if hasParam {
+			return Kind{}, &KindError{Value: s, Msg: "kind takes no parameter", Hint: fmt.Sprintf("write %q", d.name)}
+		}
+		return Kind{Name: d.name}, nil
+	}
+	switch d.name {
+	case KindSunAltitude:
+		if param == "" {
+			return Kind{}, &KindError{Value: s, Msg: "kind needs an altitude in degrees", Hint: `e.g. "sun-altitude:-3.5"`}
+		}
+		deg, err := strconv.ParseFloat(param, 64)
+		if err != nil || math.IsNaN(deg) || math.IsInf(deg, 0) {
+			return Kind{}, &KindError{Value: s, Msg: "malformed altitude in kind", Hint: `write degrees as a decimal number, e.g. "sun-altitude:-3.5"`}
+		}
+		if !(deg > -90 && deg < 90) {
+			return Kind{}, &KindError{Value: s, Msg: "altitude in kind must be within -90..90 (exclusive)", Hint: "civil twilight is -6, the horizon 0"}
+		}
+		return Kind{Name: KindSunAltitude, Altitude: deg}, nil
+	default: // KindPhotoperiod
+		if param == "" {
+			return Kind{}, &KindError{Value: s, Msg: "kind needs a day length", Hint: `e.g. "photoperiod:12h" or "photoperiod:14h30m"`}
+		}
+		dur, err := time.ParseDuration(param)
+		if err != nil {
+			return Kind{}, &KindError{Value: s, Msg: "malformed day length in kind", Hint: `write hours and minutes with units, e.g. "photoperiod:14h30m"`}
+		}
+		if !(dur > 0 && dur < 24*time.Hour) {
+			return Kind{}, &KindError{Value: s, Msg: "day length in kind must be longer than 0 and shorter than 24h", Hint: `e.g. "photoperiod:12h"`}
+		}
+		return Kind{Name: KindPhotoperiod, DayLength: dur}, nil
+	}
+}
+
+func exampleFor(name string) string {
+	for i, n := range KindNames {
+		if n == name {
+			return KindExamples[i]
+		}
+	}
+	return name
+}
+
+// String returns the written form: "sunrise", "sun-altitude:-3.5",
+// "photoperiod:14h30m". The zero Kind gives "".
+func (k Kind) String() string {
+	switch k.Name {
+	case KindSunAltitude:
+		return KindSunAltitude + ":" + strconv.FormatFloat(k.Altitude, 'f', -1, 64)
+	case KindPhotoperiod:
+		return KindPhotoperiod + ":" + shortDuration(k.DayLength)
+	}
+	return k.Name
+}
+
+// shortDuration writes d like time.Duration.String without the zero tails:
+// 12h, 14h30m, 12h0m30s. The result parses back to d exactly.
+func shortDuration(d time.Duration) string {
+	s := d.String()
+	if strings.HasSuffix(s, "m0s") {
+		s = strings.TrimSuffix(s, "0s")
+	}
+	if strings.HasSuffix(s, "h0m") {
+		s = strings.TrimSuffix(s, "0m")
+	}
+	return s
+}
+
+// UnmarshalText parses the written form (see ParseKind).
+func (k *Kind) UnmarshalText(b []byte) error {
+	p, err := ParseKind(string(b))
+	if err != nil {
+		return err
+	}
+	*k = p
+	return nil
+}
+
+// MarshalText writes the written form (see Kind.String).
+func (k Kind) MarshalText() ([]byte, error) {
+	return []byte(k.String()), nil
+}
+
+// IsZero reports whether k is the zero Kind (no kind given).
+func (k Kind) IsZero() bool { return k == Kind{} }
+
+// Family returns the group a kind belongs to: FamilySun, FamilyTwilight,
+// FamilyYear or FamilyMoon ("" for an unknown name).
+func (k Kind) Family() string {
+	if d, ok := kindIndex[k.Name]; ok {
+		return d.family
+	}
+	return ""
+}
+
+func (k Kind) has(f kindFlags) bool {
+	d, ok := kindIndex[k.Name]
+	return ok && d.flags&f != 0
+}
+
+// IsSpan reports whether the kind's events are intervals with a start and an
+// end (golden-hour, blue-hour, dark-window) rather than instants.
+func (k Kind) IsSpan() bool { return k.has(flagSpan) }
+
+// IsMoon reports whether computing the kind needs the Moon's position
+// (phases, moonrise, moonset, moon-transit, dark-window).
+func (k Kind) IsMoon() bool { return k.has(flagMoon) }
+
+// IsYearly reports whether the kind has a few events a year or a month
+// (equinoxes, solstices, cross-quarter days, apsides, moon phases) rather than
+// events computed day by day.
+func (k Kind) IsYearly() bool { return k.has(flagYearly) }
+
+// IsAllDay reports whether the kind's events are all-day entries by nature
+// (daily-summary and photoperiod: they name a date, not an instant).
+func (k Kind) IsAllDay() bool {
+	return k.Name == "daily-summary" || k.Name == KindPhotoperiod
+}
+
+// IsGroup reports whether the kind stands for several kinds (seasons,
+// moon-phases).
+func (k Kind) IsGroup() bool {
+	d, ok := kindIndex[k.Name]
+	return ok && len(d.members) > 0
+}
+
+// Members returns the kinds a group stands for ("seasons" gives the two
+// equinoxes and the two solstices, "moon-phases" the four phases), or k alone
+// for any other kind.
+func (k Kind) Members() []Kind {
+	d, ok := kindIndex[k.Name]
+	if !ok || len(d.members) == 0 {
+		return []Kind{k}
+	}
+	out := make([]Kind, len(d.members))
+	for i, m := range d.members {
+		out[i] = Kind{Name: m}
+	}
+	return out
 }

@@ -1,7 +1,9 @@
 package config
 
 import (
+	_ "embed"
 	"fmt"
+	"strings"
 	"time"
 )
 
@@ -17,12 +19,21 @@ func (z *Zone) UnmarshalText(b []byte) error {
 		z.Location = nil
 		return nil
 	}
-	loc, err := time.LoadLocation(name)
+	loc, err := loadZone(name)
 	if err != nil {
-		return fmt.Errorf("unknown time zone %q (use an IANA name such as \"Europe/Vienna\")", name)
+		return &ZoneError{Name: name, Hint: zoneHint(name)}
 	}
 	z.Location = loc
 	return nil
+}
+
+// loadZone refuses "Local" (it would depend on the machine running
+// heliocal) and names the tz database cannot hold.
+func loadZone(name string) (*time.Location, error) {
+	if name == "Local" || strings.ContainsAny(name, "\x00\\") || len(name) > 100 {
+		return nil, fmt.Errorf("not an IANA zone name")
+	}
+	return time.LoadLocation(name)
 }
 
 // MarshalText writes the zone's IANA name.
@@ -31,4 +42,60 @@ func (z Zone) MarshalText() ([]byte, error) {
 		return nil, nil
 	}
 	return []byte(z.Location.String()), nil
+}
+
+// Name returns the zone's IANA name, or "" when no zone is set.
+func (z Zone) Name() string {
+	if z.Location == nil {
+		return ""
+	}
+	return z.Location.String()
+}
+
+// ZoneError reports a time zone name the tz database does not know.
+type ZoneError struct {
+	Name string // as written
+	Hint string // a suggestion
+}
+
+func (e *ZoneError) Error() string {
+	return fmt.Sprintf("unknown time zone %q (%s)", e.Name, e.Hint)
+}
+
+//go:embed zonenames.txt
+var zoneNamesText string
+
+// zoneNames are the tz database's zone names, for suggestions.
+var zoneNames = func() []string {
+	var names []string
+	for _, line := range strings.Split(zoneNamesText, "\n") {
+		line = strings.TrimSpace(line)
+		if line != "" && !strings.HasPrefix(line, "#") {
+			names = append(names, line)
+		}
+	}
+	return names
+}()
+
+// zoneHint suggests the known zone nearest to a misspelt name: same name with
+// other capitals, same city with another region, or the nearest by edit
+// distance.
+func zoneHint(name string) string {
+	const generic = `use an IANA name such as "Europe/Vienna" or "America/New_York"`
+	n := strings.ReplaceAll(strings.TrimSpace(name), " ", "_")
+	for _, z := range zoneNames {
+		if strings.EqualFold(z, n) {
+			return fmt.Sprintf("did you mean %q?", z)
+		}
+	}
+	city := n[strings.LastIndex(n, "/")+1:]
+	for _, z := range zoneNames {
+		if strings.EqualFold(z[strings.LastIndex(z, "/")+1:], city) {
+			return fmt.Sprintf("did you mean %q?", z)
+		}
+	}
+	if near := closest(n, zoneNames); near != "" {
+		return fmt.Sprintf("did you mean %q?", near)
+	}
+	return generic
 }

@@ -1,0 +1,639 @@
+package config
+
+import (
+	"bytes"
+	_ "embed"
+	"errors"
+	"fmt"
+	"io"
+	"io/fs"
+	"math"
+	"os"
+	"path/filepath"
+	"reflect"
+	"strconv"
+	"strings"
+	"time"
+
+	"github.com/go-viper/mapstructure/v2"
+	"github.com/spf13/viper"
+)
+
+// Defaults applied after parsing when a key is absent.
+const (
+	DefaultListen       = ":8080"
+	DefaultOutDir       = "public"
+	DefaultRefresh      = "15 3 * * *" // nightly at 03:15
+	DefaultMaxFeedBytes = 1000000      // some web calendars drop subscriptions over about 1 MB
+	DefaultDaysBack     = 30
+	DefaultDaysAhead    = 365
+	// MaxWindowDays bounds days_back + days_ahead: ten years.
+	MaxWindowDays = 3653
+	// maxFileBytes bounds what Parse reads; a configuration is a few kB.
+	maxFileBytes = 8 << 20
+)
+
+// ErrUnreadable is wrapped by errors for input that is not a YAML, TOML or
+// JSON document at all (syntax errors, wrong top-level shape, too large).
+var ErrUnreadable = errors.New("config: cannot read the file")
+
+// LookupEnv looks up one environment variable; os.LookupEnv fits. A nil
+// LookupEnv means no environment.
+type LookupEnv func(key string) (string, bool)
+
+// envVars maps each environment override to the key it replaces. Only
+// deployment settings can be overridden.
+var envVars = []struct{ name, path string }{
+	{"HELIOCAL_LISTEN", "service.listen"},
+	{"HELIOCAL_OUT_DIR", "service.out_dir"},
+	{"HELIOCAL_BASE_URL", "service.base_url"},
+	{"HELIOCAL_REFRESH", "service.refresh"},
+	{"HELIOCAL_REFRESH_ZONE", "service.refresh_zone"},
+	{"HELIOCAL_MAX_FEED_BYTES", "service.max_feed_bytes"},
+}
+
+// EnvNames lists the environment variables heliocal reads, in the order
+// documented: HELIOCAL_LISTEN, HELIOCAL_OUT_DIR, HELIOCAL_BASE_URL,
+// HELIOCAL_REFRESH, HELIOCAL_REFRESH_ZONE, HELIOCAL_MAX_FEED_BYTES.
+var EnvNames = func() []string {
+	out := make([]string, len(envVars))
+	for i, e := range envVars {
+		out[i] = e.name
+	}
+	return out
+}()
+
+// Parse reads a configuration in the given format ("yaml", "yml", "toml" or
+// "json"), applies the defaults and validates it. The environment is not
+// consulted (see ParseEnv). Every problem is reported at once in a
+// *ValidationError; input that is no document at all gives an error wrapping
+// ErrUnreadable.
+func Parse(r io.Reader, format string) (*Config, error) {
+	return ParseEnv(r, format, nil)
+}
+
+// ParseEnv is Parse with environment overrides of the deployment settings
+// (see EnvNames) looked up through env.
+func ParseEnv(r io.Reader, format string, env LookupEnv) (*Config, error) {
+	f := strings.ToLower(strings.TrimPrefix(format, "."))
+	switch f {
+	case "yml":
+		f = "yaml"
+	case "yaml", "toml", "json":
+	default:
+		return nil, fmt.Errorf("config: unsupported format %q (use yaml, toml or json)", format)
+	}
+	data, err := io.ReadAll(io.LimitReader(r, maxFileBytes+1))
+	if err != nil {
+		return nil, fmt.Errorf("%w: %w", ErrUnreadable, err)
+	}
+	if len(data) > maxFileBytes {
+		return nil, fmt.Errorf("%w: larger than %d bytes", ErrUnreadable, maxFileBytes)
+	}
+	return parse(data, f, env)
+}
+
+func parse(data []byte, format string, env LookupEnv) (c *Config, err error) {
+	v := viper.New()
+	v.SetConfigType(format)
+	if err := readConfig(v, data); err != nil {
+		return nil, fmt.Errorf("%w as %s: %s", ErrUnreadable, format, oneLine(err.Error()))
+	}
+	explicit := explicitWindows(v.Get("feeds"))
+
+	c = new(Config)
+	var problems []FieldError
+	if err := v.UnmarshalExact(c, viper.DecodeHook(decodeHook()), func(dc *mapstructure.DecoderConfig) {
+		dc.WeaklyTypedInput = false
+	}); err != nil {
+		problems = decodeProblems(err)
+	}
+
+	fromEnv, envProblems := applyEnv(c, env)
+	problems = append(problems, envProblems...)
+	applyDefaults(c, explicit)
+
+	var verr *ValidationError
+	if err := c.Validate(); errors.As(err, &verr) {
+		for _, p := range verr.Problems {
+			if !covered(p.Path, problems) {
+				problems = append(problems, p)
+			}
+		}
+	}
+	for i := range problems {
+		if name, ok := fromEnv[problems[i].Path]; ok {
+			problems[i].Msg += " (set by " + name + ")"
+		}
+	}
+	if len(problems) > 0 {
+		return nil, newValidationError(problems)
+	}
+	return c, nil
+}
+
+// readConfig runs viper's reader, turning a panic of a format decoder on
+// hostile input into an error: the file is then unreadable, never a crash.
+func readConfig(v *viper.Viper, data []byte) (err error) {
+	defer func() {
+		if r := recover(); r != nil {
+			err = fmt.Errorf("malformed document")
+		}
+	}()
+	return v.ReadConfig(bytes.NewReader(data))
+}
+
+func oneLine(s string) string {
+	s = strings.ReplaceAll(s, "\r", " ")
+	return strings.ReplaceAll(s, "\n", "; ")
+}
+
+// covered reports whether a validation problem at path is explained by a
+// decoding problem at the same path or at an enclosing one.
+func covered(path string, decoded []FieldError) bool {
+	for _, d := range decoded {
+		if path == d.Path || strings.HasPrefix(path, d.Path+".") || strings.HasPrefix(path, d.Path+"[") ||
+			strings.HasPrefix(d.Path, path+".") || strings.HasPrefix(d.Path, path+"[") {
+			return true
+		}
+	}
+	return false
+}
+
+// explicitWindows records, for each feed of the raw document, whether
+// days_back and days_ahead were written, so that an explicit 0 is kept and
+// only absent keys get the defaults.
+func explicitWindows(raw any) map[int][2]bool {
+	out := map[int][2]bool{}
+	list, ok := raw.([]any)
+	if !ok {
+		return out
+	}
+	for i, item := range list {
+		m, ok := item.(map[string]any)
+		if !ok {
+			continue
+		}
+		var set [2]bool
+		for k := range m {
+			switch strings.ToLower(k) {
+			case "days_back":
+				set[0] = true
+			case "days_ahead":
+				set[1] = true
+			}
+		}
+		out[i] = set
+	}
+	return out
+}
+
+// applyEnv overrides deployment settings from the environment and returns
+// which paths were overridden by which variable.
+func applyEnv(c *Config, env LookupEnv) (map[string]string, []FieldError) {
+	from := map[string]string{}
+	if env == nil {
+		return from, nil
+	}
+	var problems []FieldError
+	for _, e := range envVars {
+		val, ok := env(e.name)
+		if !ok || val == "" {
+			continue
+		}
+		from[e.path] = e.name
+		switch e.name {
+		case "HELIOCAL_LISTEN":
+			c.Service.Listen = val
+		case "HELIOCAL_OUT_DIR":
+			c.Service.OutDir = val
+		case "HELIOCAL_BASE_URL":
+			c.Service.BaseURL = val
+		case "HELIOCAL_REFRESH":
+			c.Service.Refresh = val
+		case "HELIOCAL_REFRESH_ZONE":
+			var z Zone
+			if err := z.UnmarshalText([]byte(val)); err != nil {
+				var ze *ZoneError
+				errors.As(err, &ze)
+				problems = append(problems, FieldError{Path: e.path, Value: val, Msg: "unknown time zone", Hint: ze.Hint})
+				continue
+			}
+			c.Service.RefreshZone = z
+		case "HELIOCAL_MAX_FEED_BYTES":
+			n, err := strconv.Atoi(strings.TrimSpace(val))
+			if err != nil {
+				problems = append(problems, FieldError{Path: e.path, Value: val, Msg: "must be a whole number of bytes", Hint: "e.g. 1000000"})
+				continue
+			}
+			c.Service.MaxFeedBytes = n
+		}
+	}
+	return from, problems
+}
+
+// applyDefaults fills absent keys. explicit tells, per feed index, whether
+// days_back and days_ahead were written in the file.
+func applyDefaults(c *Config, explicit map[int][2]bool) {
+	s := &c.Service
+	if s.Listen == "" {
+		s.Listen = DefaultListen
+	}
+	if s.OutDir == "" {
+		s.OutDir = DefaultOutDir
+	}
+	if s.Refresh == "" {
+		s.Refresh = DefaultRefresh
+	}
+	if s.MaxFeedBytes == 0 {
+		s.MaxFeedBytes = DefaultMaxFeedBytes
+	}
+	for i := range c.Sites {
+		if c.Sites[i].Name == "" {
+			c.Sites[i].Name = c.Sites[i].ID
+		}
+	}
+	for i := range c.Feeds {
+		f := &c.Feeds[i]
+		if f.Title == "" {
+			f.Title = f.ID
+		}
+		set := explicit[i]
+		if !set[0] && f.DaysBack == 0 {
+			f.DaysBack = DefaultDaysBack
+		}
+		if !set[1] && f.DaysAhead == 0 {
+			f.DaysAhead = DefaultDaysAhead
+		}
+	}
+}
+
+// ApplyDefaults fills the defaults of a configuration built in code: empty
+// service settings, site names and feed titles, and the window of feeds
+// whose days_back and days_ahead are both 0. Parse applies the defaults
+// itself (keeping an explicit 0).
+func (c *Config) ApplyDefaults() {
+	explicit := map[int][2]bool{}
+	for i, f := range c.Feeds {
+		if f.DaysBack != 0 || f.DaysAhead != 0 {
+			explicit[i] = [2]bool{true, true}
+		}
+	}
+	applyDefaults(c, explicit)
+}
+
+// valueError is a decoding failure that knows the offending value.
+type valueError struct {
+	Value, Msg, Hint string
+}
+
+func (e *valueError) Error() string {
+	s := e.Msg
+	if e.Hint != "" {
+		s += " (" + e.Hint + ")"
+	}
+	return s
+}
+
+var (
+	durationType = reflect.TypeFor[Duration]()
+	kindSpecType = reflect.TypeFor[KindSpec]()
+	kindType     = reflect.TypeFor[Kind]()
+	zoneType     = reflect.TypeFor[Zone]()
+)
+
+// decodeHook converts the file's scalars into the configuration types:
+// strings to Kind, KindSpec (a bare kind name), Duration and Zone; it refuses
+// numbers where a duration is expected (the unit would be a guess) and
+// fractional numbers where a whole number is expected.
+func decodeHook() mapstructure.DecodeHookFunc {
+	return func(from reflect.Type, to reflect.Type, data any) (any, error) {
+		switch to {
+		case kindSpecType:
+			if s, ok := data.(string); ok {
+				k, err := ParseKind(s)
+				if err != nil {
+					return nil, kindValueError(err)
+				}
+				return KindSpec{Kind: k}, nil
+			}
+		case kindType:
+			if s, ok := data.(string); ok {
+				k, err := ParseKind(s)
+				if err != nil {
+					return nil, kindValueError(err)
+				}
+				return k, nil
+			}
+		case zoneType:
+			if s, ok := data.(string); ok {
+				var z Zone
+				if err := z.UnmarshalText([]byte(s)); err != nil {
+					var ze *ZoneError
+					errors.As(err, &ze)
+					return nil, &valueError{Value: s, Msg: "unknown time zone", Hint: ze.Hint}
+				}
+				return z, nil
+			}
+		case durationType:
+			switch x := data.(type) {
+			case string:
+				d, err := time.ParseDuration(strings.TrimSpace(x))
+				if err != nil {
+					return nil, &valueError{Value: x, Msg: "malformed duration", Hint: `write a number with a unit, e.g. "30m", "-1h15m", "2h"`}
+				}
+				return Duration(d), nil
+			case int, int64, uint64, float64:
+				if fmt.Sprint(x) == "0" {
+					return Duration(0), nil
+				}
+				return nil, &valueError{Value: fmt.Sprint(x), Msg: "a duration needs a unit", Hint: fmt.Sprintf(`write e.g. "%vm" for minutes or "%vh" for hours`, x, x)}
+			}
+		}
+		if to.Kind() == reflect.Int && (from.Kind() == reflect.Float64 || from.Kind() == reflect.Float32) {
+			f := reflect.ValueOf(data).Float()
+			if f != math.Trunc(f) || math.Abs(f) > 1<<53 {
+				return nil, &valueError{Value: strconv.FormatFloat(f, 'g', -1, 64), Msg: "must be a whole number"}
+			}
+		}
+		return data, nil
+	}
+}
+
+func kindValueError(err error) error {
+	var ke *KindError
+	if errors.As(err, &ke) {
+		return &valueError{Value: ke.Value, Msg: ke.Msg, Hint: ke.Hint}
+	}
+	return err
+}
+
+// decodeProblems turns the decoder's joined errors into field problems.
+func decodeProblems(err error) []FieldError {
+	var out []FieldError
+	var walk func(error)
+	walk = func(err error) {
+		if j, ok := err.(interface{ Unwrap() []error }); ok {
+			for _, e := range j.Unwrap() {
+				walk(e)
+			}
+			return
+		}
+		var de *mapstructure.DecodeError
+		if !errors.As(err, &de) {
+			out = append(out, FieldError{Path: "(file)", Msg: oneLine(err.Error())})
+			return
+		}
+		path := de.Name()
+		inner := de.Unwrap()
+		if j, ok := inner.(interface{ Unwrap() []error }); ok {
+			for _, e := range j.Unwrap() {
+				walk(e)
+			}
+			return
+		}
+		out = append(out, problemFor(path, inner)...)
+	}
+	walk(err)
+	return out
+}
+
+func problemFor(path string, err error) []FieldError {
+	shown := path
+	if shown == "" {
+		shown = "(top level)"
+	}
+	var ve *valueError
+	var pe *mapstructure.ParseError
+	var ue *mapstructure.UnconvertibleTypeError
+	switch {
+	case errors.As(err, &ve):
+		return []FieldError{{Path: shown, Value: ve.Value, Msg: ve.Msg, Hint: ve.Hint}}
+	case errors.As(err, &ue):
+		return []FieldError{{Path: shown, Value: showValue(ue.Value), Msg: "must be " + describeType(ue.Expected.Type()) + ", not " + describeValue(ue.Value), Hint: typeHint(ue.Expected.Type(), ue.Value)}}
+	case errors.As(err, &pe):
+		return []FieldError{{Path: shown, Value: showValue(pe.Value), Msg: "must be " + describeType(pe.Expected.Type())}}
+	}
+	msg := err.Error()
+	if rest, ok := strings.CutPrefix(msg, "has invalid keys: "); ok {
+		var out []FieldError
+		for _, key := range strings.Split(rest, ", ") {
+			p := key
+			if path != "" {
+				p = path + "." + key
+			}
+			fe := FieldError{Path: p, Value: key, Msg: "unknown key"}
+			if near := closest(key, keysAt(path)); near != "" {
+				fe.Hint = fmt.Sprintf("did you mean %q?", near)
+			} else if keys := keysAt(path); len(keys) > 0 {
+				fe.Hint = "known keys here: " + strings.Join(keys, ", ")
+			}
+			out = append(out, fe)
+		}
+		return out
+	}
+	return []FieldError{{Path: shown, Msg: oneLine(msg)}}
+}
+
+// keysAt lists the keys allowed at a decoder path such as "feeds[2].kinds[0]".
+func keysAt(path string) []string {
+	t := reflect.TypeFor[Config]()
+	if path != "" {
+		for _, part := range strings.Split(path, ".") {
+			name, _, _ := strings.Cut(part, "[")
+			f, ok := fieldByTag(t, name)
+			if !ok {
+				return nil
+			}
+			t = f.Type
+			for t.Kind() == reflect.Slice || t.Kind() == reflect.Pointer {
+				t = t.Elem()
+			}
+			if t.Kind() != reflect.Struct {
+				return nil
+			}
+		}
+	}
+	var keys []string
+	for i := 0; i < t.NumField(); i++ {
+		if tag := t.Field(i).Tag.Get("mapstructure"); tag != "" && tag != "-" {
+			keys = append(keys, strings.Split(tag, ",")[0])
+		}
+	}
+	return keys
+}
+
+func fieldByTag(t reflect.Type, name string) (reflect.StructField, bool) {
+	if t.Kind() != reflect.Struct {
+		return reflect.StructField{}, false
+	}
+	for i := 0; i < t.NumField(); i++ {
+		f := t.Field(i)
+		if strings.Split(f.Tag.Get("mapstructure"), ",")[0] == name {
+			return f, true
+		}
+	}
+	return reflect.StructField{}, false
+}
+
+func describeType(t reflect.Type) string {
+	switch t {
+	case zoneType:
+		return "a time zone name"
+	case kindType, kindSpecType:
+		return "a kind name or a mapping with a \"kind\" key"
+	case durationType:
+		return "a duration such as \"30m\""
+	}
+	switch t.Kind() {
+	case reflect.String:
+		return "text"
+	case reflect.Bool:
+		return "true or false"
+	case reflect.Int, reflect.Int64, reflect.Int32:
+		return "a whole number"
+	case reflect.Float64, reflect.Float32:
+		return "a number"
+	case reflect.Slice:
+		return "a list"
+	case reflect.Struct, reflect.Map:
+		return "a mapping of keys"
+	}
+	return t.String()
+}
+
+func describeValue(v any) string {
+	switch v.(type) {
+	case nil:
+		return "empty"
+	case string:
+		return "text"
+	case bool:
+		return "true/false"
+	case int, int64, uint64, int32, float64, float32:
+		return "a number"
+	case []any:
+		return "a list"
+	case map[string]any, map[any]any:
+		return "a mapping"
+	}
+	return fmt.Sprintf("a %T", v)
+}
+
+func typeHint(t reflect.Type, v any) string {
+	if _, ok := v.(string); ok && (t.Kind() == reflect.Float64 || t.Kind() == reflect.Int) {
+		return "write the number without quotes"
+	}
+	if t.Kind() == reflect.String {
+		if _, ok := v.(string); !ok {
+			return "put the value in quotes"
+		}
+	}
+	return ""
+}
+
+func showValue(v any) string {
+	switch x := v.(type) {
+	case nil:
+		return ""
+	case string:
+		return x
+	case []any:
+		return "[…]"
+	case map[string]any, map[any]any:
+		return "{…}"
+	}
+	s := fmt.Sprint(v)
+	if len(s) > 80 {
+		s = s[:80] + "…"
+	}
+	return s
+}
+
+// Load reads the configuration file at path; the format comes from the
+// extension (.yaml, .yml, .toml, .json). The environment is not consulted
+// (see LoadEnv). A *ValidationError from Load names the file in Source.
+func Load(path string) (*Config, error) {
+	return LoadEnv(path, nil)
+}
+
+// LoadEnv is Load with environment overrides (see ParseEnv).
+func LoadEnv(path string, env LookupEnv) (*Config, error) {
+	ext := strings.ToLower(filepath.Ext(path))
+	switch ext {
+	case ".yaml", ".yml", ".toml", ".json":
+	default:
+		return nil, fmt.Errorf("config: %s: unknown file extension %q (use .yaml, .yml, .toml or .json)", path, ext)
+	}
+	f, err := os.Open(path)
+	if err != nil {
+		if errors.Is(err, fs.ErrNotExist) {
+			return nil, fmt.Errorf("config: configuration file %q not found: %w", path, fs.ErrNotExist)
+		}
+		return nil, fmt.Errorf("config: %w", err)
+	}
+	defer f.Close()
+	if st, err := f.Stat(); err == nil && st.IsDir() {
+		return nil, fmt.Errorf("config: %s is a directory, not a configuration file", path)
+	}
+	c, err := ParseEnv(f, ext, env)
+	if err != nil {
+		var verr *ValidationError
+		if errors.As(err, &verr) {
+			verr.Source = path
+			return nil, verr
+		}
+		return nil, fmt.Errorf("%s: %w", path, err)
+	}
+	return c, nil
+}
+
+//go:embed demo.yaml
+var demoYAML []byte
+
+// DemoYAML returns the text of the built-in demo configuration.
+func DemoYAML() []byte { return bytes.Clone(demoYAML) }
+
+// Demo returns a fresh copy of the built-in demo configuration, parsed,
+// defaulted and validated (a test keeps it valid).
+func Demo() *Config {
+	c, err := Parse(bytes.NewReader(demoYAML), "yaml")
+	if err != nil {
+		panic("config: built-in demo is invalid: " + err.Error())
+	}
+	return c
+}
+
+// DefaultPath is the configuration file Resolve looks for in the working
+// directory when no path is given.
+const DefaultPath = "heliocal.yaml"
+
+// Source tells where a resolved configuration came from.
+type Source struct {
+	Path string // the file read; empty for the built-in demo
+	Demo bool   // true when the built-in demo was used
+}
+
+func (s Source) String() string {
+	if s.Demo {
+		return "built-in demo"
+	}
+	return s.Path
+}
+
+// Resolve finds the configuration: flagPath when it is not empty, else
+// ./heliocal.yaml when that file exists, else the built-in demo. env
+// supplies the HELIOCAL_ overrides (nil for none). It returns which source
+// was used, so the command line can say so.
+func Resolve(flagPath string, env LookupEnv) (*Config, Source, error) {
+	if flagPath != "" {
+		c, err := LoadEnv(flagPath, env)
+		return c, Source{Path: flagPath}, err
+	}
+	if st, err := os.Stat(DefaultPath); err == nil && !st.IsDir() {
+		c, err := LoadEnv(DefaultPath, env)
+		return c, Source{Path: DefaultPath}, err
+	}
+	c, err := ParseEnv(bytes.NewReader(demoYAML), "yaml", env)
+	return c, Source{Demo: true}, err
+}

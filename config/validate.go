@@ -1,0 +1,427 @@
+package config
+
+import (
+	"fmt"
+	"math"
+	"net"
+	"net/url"
+	"regexp"
+	"slices"
+	"strconv"
+	"strings"
+	"time"
+	"unicode"
+	"unicode/utf8"
+
+	"github.com/robfig/cron/v3"
+)
+
+// Bounds checked by Validate.
+const (
+	MinElevation  = -500.0 // metres; the lowest dry land is about −430 m (common practice: Dead Sea shore)
+	MaxElevation  = 9000.0 // metres; above the highest summit
+	MinHorizon    = -5.0   // degrees; a high site looking down to a far sea horizon
+	MaxHorizon    = 45.0   // degrees; a valley floor under steep slopes
+	MaxOffset     = 12 * time.Hour
+	MaxAlarm      = 7 * 24 * time.Hour
+	MaxIDLength   = 64
+	MaxTextLength = 200 // runes, for names, titles and labels
+)
+
+// idPattern is the shape of site and feed ids: they become file names and
+// URL path segments.
+var idPattern = regexp.MustCompile(`^[a-z0-9][a-z0-9-]*$`)
+
+// FieldError is one problem of a configuration.
+type FieldError struct {
+	Path  string // e.g. "sites[2].latitude"
+	Value string // the offending value as written, e.g. "95"; empty when missing
+	Msg   string // what is wrong, e.g. "must be within -90..90"
+	Hint  string // how to fix it, may be empty
+}
+
+func (e FieldError) Error() string {
+	var b strings.Builder
+	b.WriteString(e.Path)
+	b.WriteString(": ")
+	if e.Value != "" {
+		b.WriteString(quoteValue(e.Value))
+		b.WriteString(": ")
+	}
+	b.WriteString(e.Msg)
+	if e.Hint != "" {
+		b.WriteString(" (")
+		b.WriteString(e.Hint)
+		b.WriteString(")")
+	}
+	return b.String()
+}
+
+// quoteValue shows plain tokens (numbers, ids, zone names) as they are and
+// anything else quoted, so spaces and empty strings stay visible.
+func quoteValue(v string) string {
+	if len(v) > 120 {
+		v = v[:120] + "…"
+	}
+	for _, r := range v {
+		if !(unicode.IsLetter(r) || unicode.IsDigit(r) || strings.ContainsRune("-_+./:*@", r)) {
+			return strconv.Quote(v)
+		}
+	}
+	return v
+}
+
+// ValidationError lists every problem found in a configuration, one per
+// line, ordered by path (service, sites, feeds).
+type ValidationError struct {
+	Source   string // file name, prefixed to each line when set
+	Problems []FieldError
+}
+
+func (e *ValidationError) Error() string {
+	lines := make([]string, len(e.Problems))
+	for i, p := range e.Problems {
+		if e.Source != "" {
+			lines[i] = e.Source + ": " + p.Error()
+		} else {
+			lines[i] = p.Error()
+		}
+	}
+	return strings.Join(lines, "\n")
+}
+
+func newValidationError(problems []FieldError) *ValidationError {
+	slices.SortStableFunc(problems, func(a, b FieldError) int { return comparePaths(a.Path, b.Path) })
+	return &ValidationError{Problems: problems}
+}
+
+// comparePaths orders paths by top-level section (service, sites, feeds),
+// then naturally: feeds[2] before feeds[10].
+func comparePaths(a, b string) int {
+	rank := func(p string) int {
+		switch {
+		case strings.HasPrefix(p, "service"):
+			return 0
+		case strings.HasPrefix(p, "sites"):
+			return 1
+		case strings.HasPrefix(p, "feeds"):
+			return 2
+		}
+		return 3
+	}
+	if ra, rb := rank(a), rank(b); ra != rb {
+		return ra - rb
+	}
+	ia, ib := indexOf(a), indexOf(b)
+	if ia != ib {
+		return ia - ib
+	}
+	return 0 // keep the order in which problems were found
+}
+
+// indexOf returns the first list index of a path ("feeds[12].id" → 12), or -1.
+func indexOf(p string) int {
+	open := strings.IndexByte(p, '[')
+	end := strings.IndexByte(p, ']')
+	if open < 0 || end < open {
+		return -1
+	}
+	n, err := strconv.Atoi(p[open+1 : end])
+	if err != nil {
+		return -1
+	}
+	return n
+}
+
+type problems []FieldError
+
+func (ps *problems) add(path, value, msg, hint string) {
+	*ps = append(*ps, FieldError{Path: path, Value: value, Msg: msg, Hint: hint})
+}
+
+func ftoa(f float64) string { return strconv.FormatFloat(f, 'g', -1, 64) }
+
+// Validate checks the whole configuration and returns a *ValidationError
+// listing every problem, or nil. Parse and Load call it; call it yourself on
+// a configuration built or changed in code (after ApplyDefaults).
+func (c *Config) Validate() error {
+	var ps problems
+	c.Service.validate(&ps)
+
+	if len(c.Sites) == 0 {
+		ps.add("sites", "", "no sites: at least one site is needed", "add a site with id, latitude, longitude and timezone")
+	}
+	siteIDs := make(map[string]int, len(c.Sites))
+	var ids []string
+	for i := range c.Sites {
+		s := &c.Sites[i]
+		p := fmt.Sprintf("sites[%d]", i)
+		s.validate(&ps, p)
+		if s.ID == "" {
+			continue
+		}
+		if j, dup := siteIDs[s.ID]; dup {
+			ps.add(p+".id", s.ID, fmt.Sprintf("duplicate site id (also sites[%d].id)", j), "give every site its own id")
+			continue
+		}
+		siteIDs[s.ID] = i
+		ids = append(ids, s.ID)
+	}
+
+	feedIDs := make(map[string]int, len(c.Feeds))
+	for i := range c.Feeds {
+		f := &c.Feeds[i]
+		p := fmt.Sprintf("feeds[%d]", i)
+		f.validate(&ps, p)
+		if f.ID != "" {
+			if j, dup := feedIDs[f.ID]; dup {
+				ps.add(p+".id", f.ID, fmt.Sprintf("duplicate feed id (also feeds[%d].id)", j), "feed ids name the published files; give every feed its own id")
+			} else {
+				feedIDs[f.ID] = i
+			}
+		}
+		switch _, ok := siteIDs[f.Site]; {
+		case f.Site == "":
+			ps.add(p+".site", "", "is required: the id of the site the feed is computed for", siteList(ids))
+		case !ok:
+			hint := siteList(ids)
+			if near := closest(f.Site, ids); near != "" {
+				hint = fmt.Sprintf("did you mean %q?", near)
+			}
+			ps.add(p+".site", f.Site, "no site has this id", hint)
+		}
+	}
+	if len(ps) == 0 {
+		return nil
+	}
+	return newValidationError(ps)
+}
+
+func siteList(ids []string) string {
+	if len(ids) == 0 {
+		return "define the site under sites first"
+	}
+	if len(ids) > 8 {
+		ids = append(ids[:8:8], "…")
+	}
+	return "sites: " + strings.Join(ids, ", ")
+}
+
+func (s *Service) validate(ps *problems) {
+	if s.Listen != "" {
+		host, port, err := net.SplitHostPort(s.Listen)
+		n, perr := strconv.Atoi(port)
+		switch {
+		case err != nil:
+			ps.add("service.listen", s.Listen, "must be host:port", `e.g. ":8080" or "127.0.0.1:8080"`)
+		case perr != nil || n < 0 || n > 65535:
+			ps.add("service.listen", s.Listen, "port must be a number within 0..65535", `e.g. ":8080"`)
+		case strings.ContainsAny(host, " /"):
+			ps.add("service.listen", s.Listen, "host must be a name or an IP address", `e.g. "127.0.0.1:8080", or ":8080" for every address`)
+		}
+	}
+	if strings.ContainsRune(s.OutDir, 0) {
+		ps.add("service.out_dir", s.OutDir, "contains a NUL byte", "")
+	}
+	if s.BaseURL != "" {
+		u, err := url.Parse(s.BaseURL)
+		switch {
+		case err != nil:
+			ps.add("service.base_url", s.BaseURL, "malformed URL", `e.g. "https://sky.example.org/calendars/"`)
+		case u.Scheme != "http" && u.Scheme != "https":
+			ps.add("service.base_url", s.BaseURL, "must be an absolute http or https URL", `e.g. "https://sky.example.org/calendars/"`)
+		case u.Host == "":
+			ps.add("service.base_url", s.BaseURL, "has no host name", `e.g. "https://sky.example.org/calendars/"`)
+		case u.RawQuery != "" || u.Fragment != "":
+			ps.add("service.base_url", s.BaseURL, "must not have a query or fragment: feed file names are appended to it", "")
+		}
+	}
+	if s.Refresh != "" {
+		if msg := checkCron(s.Refresh); msg != "" {
+			ps.add("service.refresh", s.Refresh, msg, `five fields: minute hour day-of-month month day-of-week, e.g. "15 3 * * *" for 03:15 every night`)
+		}
+	}
+	if s.MaxFeedBytes < 0 {
+		ps.add("service.max_feed_bytes", strconv.Itoa(s.MaxFeedBytes), "must not be negative", "leave it out for 1000000")
+	}
+}
+
+// checkCron validates a standard 5-field cron expression (or a descriptor
+// such as "@daily"); the time zone goes in refresh_zone, not in the
+// expression.
+func checkCron(expr string) string {
+	t := strings.TrimSpace(expr)
+	if strings.HasPrefix(t, "TZ=") || strings.HasPrefix(t, "CRON_TZ=") {
+		return "time zone prefix not allowed here: set refresh_zone instead"
+	}
+	if !strings.HasPrefix(t, "@") && len(strings.Fields(t)) != 5 {
+		return fmt.Sprintf("must have 5 fields, has %d", len(strings.Fields(t)))
+	}
+	if _, err := cron.ParseStandard(t); err != nil {
+		return "malformed cron expression: " + oneLine(err.Error())
+	}
+	return ""
+}
+
+func checkID(ps *problems, path, id, what string) {
+	switch {
+	case id == "":
+		ps.add(path, "", "is required", fmt.Sprintf("a short %s id of lower-case letters, digits and dashes, e.g. \"north-field\"", what))
+	case len(id) > MaxIDLength:
+		ps.add(path, id, fmt.Sprintf("longer than %d characters", MaxIDLength), "ids become file names and URLs; keep them short")
+	case !idPattern.MatchString(id):
+		hint := "ids become file names and URLs: use lower-case letters, digits and dashes, starting with a letter or digit"
+		if s := slug(id); s != "" && idPattern.MatchString(s) {
+			hint = fmt.Sprintf("ids become file names and URLs; e.g. %q", s)
+		}
+		ps.add(path, id, "must match [a-z0-9][a-z0-9-]*", hint)
+	}
+}
+
+// slug turns "North Field #2" into "north-field-2".
+func slug(s string) string {
+	var b strings.Builder
+	dash := false
+	for _, r := range strings.ToLower(s) {
+		if (r >= 'a' && r <= 'z') || (r >= '0' && r <= '9') {
+			if dash && b.Len() > 0 {
+				b.WriteByte('-')
+			}
+			b.WriteRune(r)
+			dash = false
+		} else {
+			dash = true
+		}
+	}
+	return b.String()
+}
+
+// checkText refuses text that would corrupt a calendar line: invalid UTF-8,
+// control characters (newlines only where allowNewline), excessive length.
+func checkText(ps *problems, path, s string, allowNewline bool, maxRunes int) {
+	if !utf8.ValidString(s) {
+		ps.add(path, strings.ToValidUTF8(s, "\uFFFD"), "is not valid UTF-8", "save the file as UTF-8")
+		return
+	}
+	for _, r := range s {
+		if r == '\n' || r == '\t' {
+			if allowNewline || r == '\t' {
+				continue
+			}
+		}
+		if unicode.IsControl(r) {
+			ps.add(path, s, fmt.Sprintf("contains the control character %U", r), "remove it")
+			return
+		}
+	}
+	if maxRunes > 0 && utf8.RuneCountInString(s) > maxRunes {
+		ps.add(path, s, fmt.Sprintf("longer than %d characters", maxRunes), "shorten it")
+	}
+}
+
+func (s *Site) validate(ps *problems, p string) {
+	checkID(ps, p+".id", s.ID, "site")
+	checkText(ps, p+".name", s.Name, false, MaxTextLength)
+	if !(s.Latitude >= -90 && s.Latitude <= 90) {
+		ps.add(p+".latitude", ftoa(s.Latitude), "must be within -90..90", "degrees, north positive, e.g. 47.07")
+	}
+	if !(s.Longitude >= -180 && s.Longitude <= 180) {
+		ps.add(p+".longitude", ftoa(s.Longitude), "must be within -180..180", "degrees, east positive, west negative, e.g. -3.2")
+	}
+	if !(s.Elevation >= MinElevation && s.Elevation <= MaxElevation) {
+		ps.add(p+".elevation", ftoa(s.Elevation), fmt.Sprintf("must be within %g..%g metres", MinElevation, MaxElevation), "metres above sea level, not feet")
+	}
+	if !(s.Horizon >= MinHorizon && s.Horizon <= MaxHorizon) {
+		ps.add(p+".horizon", ftoa(s.Horizon), fmt.Sprintf("must be within %g..%g degrees", MinHorizon, MaxHorizon), "the altitude of the visible skyline; 0 for a flat horizon")
+	}
+	if s.TimeZone.Location == nil {
+		ps.add(p+".timezone", "", "is required", `an IANA time zone name such as "Europe/Vienna"`)
+	}
+}
+
+func (f *Feed) validate(ps *problems, p string) {
+	checkID(ps, p+".id", f.ID, "feed")
+	checkText(ps, p+".title", f.Title, false, MaxTextLength)
+	checkText(ps, p+".description", f.Description, true, 4000)
+	if len(f.Kinds) == 0 {
+		ps.add(p+".kinds", "", "no kinds: a feed needs at least one event kind", `e.g. kinds: [sunrise, sunset]`)
+	}
+	type key struct {
+		kind   Kind
+		offset Duration
+	}
+	seen := map[key]int{}
+	for j := range f.Kinds {
+		ks := &f.Kinds[j]
+		kp := fmt.Sprintf("%s.kinds[%d]", p, j)
+		ks.validate(ps, kp)
+		for _, m := range ks.Kind.Members() {
+			if m.IsZero() {
+				continue
+			}
+			k := key{m, ks.Offset}
+			if prev, dup := seen[k]; dup {
+				what := fmt.Sprintf("listed twice (also in %s.kinds[%d]", p, prev)
+				if prevKind := f.Kinds[prev].Kind; prevKind != m {
+					what += fmt.Sprintf(", %q", prevKind.String())
+				}
+				ps.add(kp, ks.Kind.String(), what+")", "remove one, or give one an offset")
+				break
+			}
+			seen[k] = j
+		}
+	}
+	if f.DaysBack < 0 {
+		ps.add(p+".days_back", strconv.Itoa(f.DaysBack), "must not be negative", "the number of past days kept in the feed, e.g. 30")
+	}
+	if f.DaysAhead < 0 {
+		ps.add(p+".days_ahead", strconv.Itoa(f.DaysAhead), "must not be negative", "the number of future days in the feed, e.g. 365")
+	}
+	if f.DaysBack >= 0 && f.DaysAhead >= 0 && f.DaysBack+f.DaysAhead > MaxWindowDays {
+		ps.add(p+".days_ahead", strconv.Itoa(f.DaysAhead), fmt.Sprintf("window of %d days (days_back %d + days_ahead %d) is over 10 years (%d days)", f.DaysBack+f.DaysAhead, f.DaysBack, f.DaysAhead, MaxWindowDays), "large feeds are dropped by some calendar apps; use 30 back and 365 ahead")
+	}
+	if f.Color != "" && !IsColorName(f.Color) {
+		hint := "a CSS3 colour name such as \"goldenrod\" or \"steelblue\""
+		if near := closest(f.Color, cssColorNames); near != "" {
+			hint = fmt.Sprintf("did you mean %q?", near)
+		}
+		ps.add(p+".color", f.Color, "not a CSS3 colour name", hint)
+	}
+	if a := f.Alarm.D(); a < 0 {
+		ps.add(p+".alarm", f.Alarm.String(), "must not be negative: it is the time before each event", `e.g. "15m" for 15 minutes before`)
+	} else if a > MaxAlarm {
+		ps.add(p+".alarm", f.Alarm.String(), "must be at most 7 days (168h)", `e.g. "15m" or "1h"`)
+	}
+}
+
+func (ks *KindSpec) validate(ps *problems, p string) {
+	if ks.Kind.IsZero() {
+		ps.add(p+".kind", "", "is required", "one of: "+strings.Join(KindNames, ", "))
+		return
+	}
+	if _, ok := kindIndex[ks.Kind.Name]; !ok {
+		hint := ""
+		if near := closest(ks.Kind.Name, KindNames); near != "" {
+			hint = fmt.Sprintf("did you mean %q?", near)
+		}
+		ps.add(p+".kind", ks.Kind.Name, "unknown kind", hint)
+		return
+	}
+	// Kinds built in code bypass ParseKind: check the thresholds again.
+	if _, err := ParseKind(ks.Kind.String()); err != nil {
+		ps.add(p+".kind", ks.Kind.String(), "malformed threshold", err.Error())
+	}
+	if o := ks.Offset.D(); o < -MaxOffset || o > MaxOffset {
+		ps.add(p+".offset", ks.Offset.String(), "must be within -12h..12h", `e.g. "-30m" for 30 minutes before`)
+	} else if o != 0 && ks.Kind.IsAllDay() {
+		ps.add(p+".offset", ks.Offset.String(), fmt.Sprintf("has no meaning for %s: its entries name a date, not a time", ks.Kind.Name), "remove the offset")
+	}
+	checkText(ps, p+".label", ks.Label, false, MaxTextLength)
+	mi := ks.MaxIllumination
+	switch {
+	case math.IsNaN(mi) || mi < 0 || mi > 1:
+		ps.add(p+".max_illumination", ftoa(mi), "must be within 0..1", "the Moon's illuminated fraction, e.g. 0.25 for a thin crescent")
+	case mi != 0 && ks.Kind.Name != "dark-window":
+		ps.add(p+".max_illumination", ftoa(mi), "applies only to dark-window", "remove it, or use kind: dark-window")
+	}
+}

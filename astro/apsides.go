@@ -32,7 +32,7 @@ func apsis(year int, aphelion bool) (time.Time, float64, error) {
 		k += 0.5
 	}
 	guess := 2451547.507 + 365.2596358*k + 0.0000000156*k*k // Meeus eq. 38.1
-	sign := 1.0                                               // minimise sign·R
+	sign := 1.0                                             // minimise sign·R
 	if aphelion {
 		sign = -1
 	}

@@ -100,12 +100,13 @@ func isUTC(loc interface{ String() string }) bool { return utcNames[loc.String()
 
 // checkTZID rejects zone names that cannot be a TZID parameter value: empty,
 // or holding a control character or DQUOTE (RFC 5545 §3.2 has no escape for
-// those).
+// those), or a backslash (legal, but parsers that wrongly unescape parameter
+// values, golang-ical among them, would read another name).
 func checkTZID(name string) error {
 	if name == "" {
 		return errors.New("time zone has an empty name")
 	}
-	if strings.ContainsFunc(name, func(r rune) bool { return unicode.IsControl(r) || r == '"' }) {
+	if strings.ContainsFunc(name, func(r rune) bool { return unicode.IsControl(r) || r == '"' || r == '\\' }) {
 		return fmt.Errorf("time zone name %q cannot be a TZID parameter", name)
 	}
 	return nil

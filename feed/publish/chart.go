@@ -1,0 +1,271 @@
+package publish
+
+import (
+	"fmt"
+	"math"
+	"strconv"
+	"strings"
+	"time"
+)
+
+// SiteChart is the year of one site as the index page draws it: how long the
+// Sun stays above the horizon and above each twilight limit on every day,
+// with the feed's notable events marked. The caller computes it (publish
+// does no astronomy); Above turns a day's crossings into the durations.
+type SiteChart struct {
+	// Days are consecutive local dates, in order (typically one year).
+	Days []ChartDay
+	// Marks are dated events drawn as vertical lines, e.g. the equinoxes and
+	// solstices. Marks outside Days are left out.
+	Marks []Mark
+	// Levels are day lengths drawn as horizontal lines, e.g. a photoperiod
+	// threshold of 12 h.
+	Levels []Level
+}
+
+// ChartDay is one local day of a SiteChart. Each duration is the time the
+// Sun's centre (or its upper limb for Daylight, as sunrise is defined) spends
+// above the limit during that local day: 0 when it never gets there (Daylight
+// in the polar night), the whole day when it never drops below (Daylight in
+// the midnight sun, Astronomical in a northern summer night that never gets
+// dark). Values are clipped to 0..24 h.
+type ChartDay struct {
+	Date         time.Time     // the local date, at 00:00 UTC
+	Daylight     time.Duration // sunrise to sunset
+	Civil        time.Duration // above −6°: civil dawn to civil dusk
+	Nautical     time.Duration // above −12°
+	Astronomical time.Duration // above −18°
+}
+
+// Mark is an event drawn as a vertical line at its date (and time).
+type Mark struct {
+	At    time.Time
+	Label string
+}
+
+// Level is a day length drawn as a horizontal line.
+type Level struct {
+	Length time.Duration
+	Label  string
+}
+
+// Above returns how long the Sun stays above a limit during the local day
+// [dayStart, dayEnd), from that day's crossings of the limit: rise is the
+// upward crossing and set the downward one, each zero when the day has none.
+// With neither, up tells whether the Sun stayed above the limit all day
+// (polar day: the whole day) or below it (polar night: 0). A set before the
+// rise (around the start or the end of a polar period) counts both ends of
+// the day.
+func Above(dayStart, dayEnd, rise, set time.Time, up bool) time.Duration {
+	day := dayEnd.Sub(dayStart)
+	switch {
+	case rise.IsZero() && set.IsZero():
+		if up {
+			return day
+		}
+		return 0
+	case set.IsZero():
+		return dayEnd.Sub(rise)
+	case rise.IsZero():
+		return set.Sub(dayStart)
+	case rise.Before(set):
+		return set.Sub(rise)
+	default:
+		return set.Sub(dayStart) + dayEnd.Sub(rise)
+	}
+}
+
+// Chart geometry, in SVG user units.
+const (
+	chartW     = 760
+	chartH     = 300
+	plotLeft   = 44
+	plotTop    = 30
+	plotW      = 700
+	plotH      = 240 // 10 units per hour
+	plotBottom = plotTop + plotH
+)
+
+type chartView struct {
+	ID      string // unique id for aria references
+	Title   string
+	Summary string
+	Bands   []bandView
+	Months  []tickView
+	Hours   []tickView
+	Marks   []markView
+	Levels  []levelView
+}
+
+type bandView struct {
+	Class  string
+	Points string
+}
+
+type tickView struct {
+	X, Y, TX, TY string
+	Label        string
+}
+
+type markView struct {
+	X, Y1, Y2, TY string
+	Label         string
+}
+
+type levelView struct {
+	Y, TX, TY string
+	Label     string
+}
+
+func num(v float64) string {
+	v = math.Round(v*10) / 10
+	if v == 0 {
+		v = 0 // no "-0"
+	}
+	return strconv.FormatFloat(v, 'f', -1, 64)
+}
+
+func clipHours(d time.Duration) float64 {
+	h := d.Hours()
+	switch {
+	case math.IsNaN(h) || h < 0:
+		return 0
+	case h > 24:
+		return 24
+	}
+	return h
+}
+
+func yOf(h float64) float64 { return plotBottom - h*plotH/24 }
+
+// bandPoints is the polygon of an area from 0 h up to each day's value.
+// Runs of equal height are reduced to their ends, so a polar plateau costs
+// two points.
+func bandPoints(days []ChartDay, val func(ChartDay) time.Duration) string {
+	n := len(days)
+	step := float64(plotW) / float64(n)
+	type pt struct{ x, y float64 }
+	pts := []pt{{plotLeft, plotBottom}}
+	ys := make([]float64, n)
+	for i, d := range days {
+		ys[i] = math.Round(yOf(clipHours(val(d)))*10) / 10
+	}
+	pts = append(pts, pt{plotLeft, ys[0]})
+	for i := range n {
+		if i > 0 && i < n-1 && ys[i] == ys[i-1] && ys[i] == ys[i+1] {
+			continue
+		}
+		pts = append(pts, pt{plotLeft + (float64(i)+0.5)*step, ys[i]})
+	}
+	pts = append(pts, pt{plotLeft + plotW, ys[n-1]}, pt{plotLeft + plotW, plotBottom})
+	var b strings.Builder
+	for i, p := range pts {
+		if i > 0 {
+			b.WriteByte(' ')
+		}
+		b.WriteString(num(p.x))
+		b.WriteByte(',')
+		b.WriteString(num(p.y))
+	}
+	return b.String()
+}
+
+// formatLength writes a day length as "7 h 41 min".
+func formatLength(d time.Duration) string {
+	m := int(math.Round(clipHours(d) * 60))
+	return fmt.Sprintf("%d h %02d min", m/60, m%60)
+}
+
+// chart turns a SiteChart into what the template draws; nil when empty.
+func chart(id, siteName string, c *SiteChart) *chartView {
+	if c == nil || len(c.Days) == 0 {
+		return nil
+	}
+	days := c.Days
+	first, last := days[0].Date, days[len(days)-1].Date
+	v := &chartView{ID: "chart-" + id}
+	if first.Year() == last.Year() {
+		v.Title = fmt.Sprintf("Day length and twilight at %s, %d", siteName, first.Year())
+	} else {
+		v.Title = fmt.Sprintf("Day length and twilight at %s, %s to %s", siteName,
+			first.Format("2 Jan 2006"), last.Format("2 Jan 2006"))
+	}
+	v.Bands = []bandView{
+		{"astro", bandPoints(days, func(d ChartDay) time.Duration { return d.Astronomical })},
+		{"naut", bandPoints(days, func(d ChartDay) time.Duration { return d.Nautical })},
+		{"civil", bandPoints(days, func(d ChartDay) time.Duration { return d.Civil })},
+		{"day", bandPoints(days, func(d ChartDay) time.Duration { return d.Daylight })},
+	}
+
+	// Summary: the extremes and the polar days.
+	lo, hi := 0, 0
+	polarDay, polarNight := 0, 0
+	for i, d := range days {
+		if d.Daylight < days[lo].Daylight {
+			lo = i
+		}
+		if d.Daylight > days[hi].Daylight {
+			hi = i
+		}
+		switch h := clipHours(d.Daylight); {
+		case h >= 24:
+			polarDay++
+		case h <= 0:
+			polarNight++
+		}
+	}
+	s := fmt.Sprintf("Daylight from %s (%s) to %s (%s).",
+		formatLength(days[lo].Daylight), days[lo].Date.Format("2 Jan"),
+		formatLength(days[hi].Daylight), days[hi].Date.Format("2 Jan"))
+	if polarDay > 0 {
+		s += fmt.Sprintf(" The Sun stays up all day on %d %s.", polarDay, plural(polarDay, "day", "days"))
+	}
+	if polarNight > 0 {
+		s += fmt.Sprintf(" It stays down all day on %d %s.", polarNight, plural(polarNight, "day", "days"))
+	}
+	v.Summary = s
+
+	step := float64(plotW) / float64(len(days))
+	for i, d := range days {
+		if d.Date.Day() != 1 && i != 0 {
+			continue
+		}
+		x := plotLeft + float64(i)*step
+		v.Months = append(v.Months, tickView{X: num(x), TX: num(x + 3), TY: num(plotBottom + 14), Label: d.Date.Format("Jan")})
+	}
+	for h := 0; h <= 24; h += 6 {
+		y := yOf(float64(h))
+		v.Hours = append(v.Hours, tickView{Y: num(y), TX: num(plotLeft - 6), TY: num(y + 4), Label: strconv.Itoa(h) + " h"})
+	}
+	span := last.Add(24 * time.Hour).Sub(first)
+	lastX := math.Inf(-1)
+	row := 0
+	for _, m := range c.Marks {
+		off := m.At.Sub(first)
+		if off < 0 || off >= span {
+			continue
+		}
+		x := plotLeft + float64(plotW)*off.Hours()/span.Hours()
+		if x-lastX < 110 {
+			row = 1 - row
+		} else {
+			row = 0
+		}
+		lastX = x
+		v.Marks = append(v.Marks, markView{X: num(x), Y1: num(plotTop - 2 - 12*float64(row)), Y2: num(plotBottom),
+			TY: num(plotTop - 6 - 12*float64(row)), Label: m.Label})
+	}
+	for _, lv := range c.Levels {
+		h := clipHours(lv.Length)
+		y := yOf(h)
+		v.Levels = append(v.Levels, levelView{Y: num(y), TX: num(plotLeft + plotW - 4), TY: num(y - 3), Label: lv.Label})
+	}
+	return v
+}
+
+func plural(n int, one, many string) string {
+	if n == 1 {
+		return one
+	}
+	return many
+}

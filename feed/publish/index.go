@@ -1,0 +1,259 @@
+package publish
+
+import (
+	"bytes"
+	"context"
+	"fmt"
+	"html/template"
+	"math"
+	"net/url"
+	"sort"
+	"strconv"
+	"strings"
+
+	"heliocal/feed"
+)
+
+// Caution is the safety note on the index page. The times are computed; a
+// user relying on one where a rule or their eyes are at stake must be told.
+const Caution = "These times are computed from an astronomical model for the coordinates shown; " +
+	"they are not official observations or rulings, and local terrain, weather and refraction shift them by minutes. " +
+	"Where a rule depends on them (hunting hours, aviation night, lighting-up times for vehicles), " +
+	"follow your local regulations and the official tables. " +
+	"Never look at the Sun, with or without binoculars or a telescope."
+
+type indexView struct {
+	Title     string
+	Generated string
+	Feeds     int
+	Events    string
+	Size      string
+	Caution   string
+	Relative  bool
+	Sites     []siteView
+}
+
+type siteView struct {
+	ID, Name, Coords, Elevation, Zone string
+	Chart                             *chartView
+	Feeds                             []feedView
+}
+
+type feedView struct {
+	ID, Title, File string
+	Events, Size    string
+	HTTPS           string       // absolute or relative URL of the .ics
+	Webcal          template.URL // webcal:// URL; empty without a base URL
+}
+
+// formatCount writes 41210 as "41,210".
+func formatCount(n int) string {
+	s := strconv.Itoa(n)
+	neg := strings.HasPrefix(s, "-")
+	s = strings.TrimPrefix(s, "-")
+	var b strings.Builder
+	for i, r := range s {
+		if i > 0 && (len(s)-i)%3 == 0 {
+			b.WriteByte(',')
+		}
+		b.WriteRune(r)
+	}
+	if neg {
+		return "-" + b.String()
+	}
+	return b.String()
+}
+
+// formatBytes writes a size in SI units: "812 B", "41.2 kB", "5.2 MB".
+func formatBytes(n int64) string {
+	switch {
+	case n < 1000:
+		return strconv.FormatInt(n, 10) + " B"
+	case n < 1_000_000:
+		return strconv.FormatFloat(float64(n)/1e3, 'f', 1, 64) + " kB"
+	case n < 1_000_000_000:
+		return strconv.FormatFloat(float64(n)/1e6, 'f', 1, 64) + " MB"
+	}
+	return strconv.FormatFloat(float64(n)/1e9, 'f', 1, 64) + " GB"
+}
+
+// formatCoords writes "52.5200° N, 13.4050° E".
+func formatCoords(lat, lon float64) string {
+	ns, ew := "N", "E"
+	if lat < 0 {
+		ns = "S"
+	}
+	if lon < 0 {
+		ew = "W"
+	}
+	return fmt.Sprintf("%.4f° %s, %.4f° %s", math.Abs(lat), ns, math.Abs(lon), ew)
+}
+
+// webcalURL turns an http(s) URL into its webcal:// form (RFC-less but
+// universal: calendar apps register the scheme and subscribe to the feed).
+func webcalURL(u *url.URL) string {
+	w := *u
+	w.Scheme = "webcal"
+	return w.String()
+}
+
+func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, error) {
+	base, err := opts.base()
+	if err != nil {
+		return nil, err
+	}
+	v := indexView{
+		Title:    opts.Title,
+		Caution:  Caution,
+		Feeds:    len(l.feeds),
+		Relative: base == nil,
+	}
+	if v.Title == "" {
+		v.Title = "Sky calendars"
+	}
+	if !l.generated.IsZero() {
+		v.Generated = l.generated.Format("2 January 2006")
+	}
+	events, size := 0, int64(0)
+	bySite := map[string][]feedView{}
+	for _, f := range l.feeds {
+		events += f.Events
+		size += int64(f.Bytes)
+		fv := feedView{ID: f.ID, Title: f.Title, File: f.File, Events: formatCount(f.Events), Size: formatBytes(int64(f.Bytes))}
+		if base != nil {
+			u := base.JoinPath(f.File)
+			fv.HTTPS = u.String()
+			fv.Webcal = template.URL(webcalURL(u))
+		} else {
+			fv.HTTPS = (&url.URL{Path: f.File}).String()
+		}
+		bySite[f.Site] = append(bySite[f.Site], fv)
+	}
+	v.Events = formatCount(events)
+	v.Size = formatBytes(size)
+
+	sites := append([]feed.Site(nil), l.sites...)
+	sort.SliceStable(sites, func(i, j int) bool {
+		if sites[i].Name != sites[j].Name {
+			return sites[i].Name < sites[j].Name
+		}
+		return sites[i].ID < sites[j].ID
+	})
+	for i, s := range sites {
+		feeds := bySite[s.ID]
+		if len(feeds) == 0 {
+			continue
+		}
+		name := s.Name
+		if name == "" {
+			name = s.ID
+		}
+		zone := "UTC"
+		if s.Location != nil {
+			zone = s.Location.String()
+		}
+		sv := siteView{
+			ID: s.ID, Name: name, Coords: formatCoords(s.Latitude, s.Longitude),
+			Elevation: strconv.FormatFloat(math.Round(s.Elevation), 'f', 0, 64) + " m",
+			Zone:      zone, Feeds: feeds,
+		}
+		if opts.Charts != nil {
+			if err := ctx.Err(); err != nil {
+				return nil, fmt.Errorf("publish: %w", err)
+			}
+			c, err := opts.Charts(ctx, s)
+			if err != nil {
+				return nil, fmt.Errorf("publish: chart of site %s: %w", s.ID, err)
+			}
+			sv.Chart = chart(strconv.Itoa(i), name, c)
+		}
+		v.Sites = append(v.Sites, sv)
+	}
+	var b bytes.Buffer
+	if err := indexTemplate.Execute(&b, v); err != nil {
+		return nil, fmt.Errorf("publish: index: %w", err)
+	}
+	return b.Bytes(), nil
+}
+
+// The page is plain HTML with inline CSS and SVG: no script, no external
+// asset. It is also well-formed XML (void elements closed, no named
+// entities), which keeps it easy to check and to post-process.
+var indexTemplate = template.Must(template.New("index").Parse(`<!DOCTYPE html>
+<html lang="en">
+<head>
+<meta charset="utf-8"/>
+<meta name="viewport" content="width=device-width, initial-scale=1"/>
+<title>{{.Title}}</title>
+<style>
+body{font:16px/1.45 system-ui,sans-serif;margin:0 auto;max-width:52rem;padding:1rem;color:#1d2030;background:#fbfaf6}
+h1{font-size:1.6rem;margin:.2rem 0}
+h2{font-size:1.25rem;margin:2rem 0 .2rem;border-top:1px solid #ddd;padding-top:1rem}
+.place{color:#555;margin:.2rem 0 .8rem}
+.caution{border-left:4px solid #d08a00;background:#fff6e0;padding:.6rem .9rem;margin:1rem 0}
+table{border-collapse:collapse;width:100%}
+th,td{text-align:left;padding:.35rem .5rem;border-bottom:1px solid #e4e2dc;vertical-align:top}
+td.num,th.num{text-align:right;white-space:nowrap}
+code{font-size:.85em;word-break:break-all}
+figure{margin:0 0 1rem}
+figcaption{font-size:.9rem;color:#444}
+svg{max-width:100%;height:auto;display:block}
+svg text{font:10px system-ui,sans-serif;fill:#333}
+svg .yl{text-anchor:end}
+svg .ll{text-anchor:end;fill:#1d2030}
+svg .ml{text-anchor:middle}
+.night{fill:#1d2545}
+.astro{fill:#2f3e6e}
+.naut{fill:#4d659e}
+.civil{fill:#8ea8d8}
+.day{fill:#f5cd55}
+.grid{stroke:#ffffff;stroke-opacity:.25;stroke-width:.5}
+.tick{stroke:#333;stroke-width:.8}
+.mark{stroke:#c0392b;stroke-width:1}
+.level{stroke:#1d2030;stroke-width:1;stroke-dasharray:4 3}
+.key{display:inline-block;width:.9em;height:.9em;vertical-align:-.1em;margin:0 .25em 0 .6em;border:1px solid #999}
+.key.night{background:#1d2545}.key.astro{background:#2f3e6e}.key.naut{background:#4d659e}.key.civil{background:#8ea8d8}.key.day{background:#f5cd55}
+</style>
+</head>
+<body>
+<header>
+<h1>{{.Title}}</h1>
+<p>{{.Feeds}} calendar feeds, {{.Events}} events, {{.Size}}{{if .Generated}}, computed on {{.Generated}}{{end}}.
+{{if .Relative}}Subscribe by adding a feed's address (the link below, made absolute with this page's address) to your calendar app as a subscription.{{else}}The webcal link subscribes in your calendar app; the https address can be pasted into any app's "subscribe by URL".{{end}}
+Machine-readable list: <a href="feeds.json">feeds.json</a>.</p>
+</header>
+<aside class="caution" role="note"><strong>Caution.</strong> {{.Caution}}</aside>
+{{range .Sites}}
+<section id="site-{{.ID}}">
+<h2>{{.Name}}</h2>
+<p class="place">{{.Coords}}, elevation {{.Elevation}}, time zone {{.Zone}}</p>
+{{with .Chart}}<figure>
+<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 760 300" width="760" height="300" role="img" aria-labelledby="{{.ID}}-t {{.ID}}-d">
+<title id="{{.ID}}-t">{{.Title}}</title>
+<desc id="{{.ID}}-d">{{.Summary}}</desc>
+<rect class="night" x="44" y="30" width="700" height="240"/>
+{{range .Bands}}<polygon class="{{.Class}}" points="{{.Points}}"/>
+{{end}}{{range .Hours}}<line class="grid" x1="44" x2="744" y1="{{.Y}}" y2="{{.Y}}"/><text class="yl" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>
+{{end}}{{range .Months}}<line class="tick" x1="{{.X}}" x2="{{.X}}" y1="270" y2="275"/><text x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>
+{{end}}{{range .Levels}}<line class="level" x1="44" x2="744" y1="{{.Y}}" y2="{{.Y}}"/><text class="ll" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>
+{{end}}{{range .Marks}}<line class="mark" x1="{{.X}}" x2="{{.X}}" y1="{{.Y1}}" y2="{{.Y2}}"/><text class="ml" x="{{.X}}" y="{{.TY}}">{{.Label}}</text>
+{{end}}</svg>
+<figcaption>{{.Summary}} Hours per day with
+<span class="key day"></span>the Sun up,
+<span class="key civil"></span>civil twilight (Sun above −6°),
+<span class="key naut"></span>nautical (above −12°),
+<span class="key astro"></span>astronomical (above −18°) and
+<span class="key night"></span>full night.</figcaption>
+</figure>
+{{end}}<table>
+<thead><tr><th>Feed</th><th class="num">Events</th><th class="num">Size</th><th>Subscribe</th></tr></thead>
+<tbody>
+{{range .Feeds}}<tr id="feed-{{.ID}}"><td><strong>{{.Title}}</strong><br/><code>{{.ID}}</code></td><td class="num">{{.Events}}</td><td class="num">{{.Size}}</td><td>{{if .Webcal}}<a href="{{.Webcal}}">webcal</a> · {{end}}<a href="{{.HTTPS}}">{{if .Webcal}}https{{else}}{{.File}}{{end}}</a>{{if .Webcal}}<br/><code>{{.HTTPS}}</code>{{end}}</td></tr>
+{{end}}</tbody>
+</table>
+</section>
+{{end}}
+<footer><p>Published by heliocal.</p></footer>
+</body>
+</html>
+`))

@@ -1,0 +1,148 @@
+package publish
+
+import (
+	"fmt"
+	"io"
+	"os"
+	"strings"
+	"sync"
+	"time"
+
+	"golang.org/x/term"
+)
+
+// Progress reports a publish to a writer (the CLI passes stderr): a progress
+// bar redrawn in place when the writer is a terminal, nothing while it runs
+// otherwise, and a summary line at the end either way. Its methods may be
+// called from any goroutine; a nil *Progress reports nothing.
+type Progress struct {
+	w   io.Writer
+	bar bool
+
+	mu      sync.Mutex
+	total   int
+	done    int
+	drawn   time.Time
+	visible bool
+}
+
+// NewProgress reports to w, with a bar only when w is a terminal.
+func NewProgress(w io.Writer) *Progress {
+	bar := false
+	if f, ok := w.(*os.File); ok {
+		bar = term.IsTerminal(int(f.Fd()))
+	}
+	return &Progress{w: w, bar: bar}
+}
+
+// Start announces how many feeds the run will publish.
+func (p *Progress) Start(total int) {
+	if p == nil {
+		return
+	}
+	p.mu.Lock()
+	defer p.mu.Unlock()
+	p.total, p.done = total, 0
+}
+
+// Feed records one published feed.
+func (p *Progress) Feed(info FeedInfo, written bool) {
+	if p == nil {
+		return
+	}
+	p.mu.Lock()
+	defer p.mu.Unlock()
+	p.done++
+	if !p.bar {
+		return
+	}
+	now := time.Now()
+	if p.done < p.total && now.Sub(p.drawn) < 100*time.Millisecond {
+		return
+	}
+	p.drawn = now
+	p.visible = true
+	fmt.Fprintf(p.w, "\r\x1b[K%s %s", barLine(p.done, p.total, 30), info.ID)
+}
+
+// barLine draws "[=========>          ]  412/1000 feeds  41%".
+func barLine(done, total, width int) string {
+	if total <= 0 {
+		total = 1
+	}
+	filled := min(width, done*width/total)
+	bar := strings.Repeat("=", filled)
+	if filled < width {
+		bar += ">" + strings.Repeat(" ", width-filled-1)
+	}
+	return fmt.Sprintf("[%s] %*d/%d feeds %3d%%", bar, len(fmt.Sprint(total)), done, total, done*100/total)
+}
+
+func (p *Progress) clear() {
+	if p.visible {
+		fmt.Fprint(p.w, "\r\x1b[K")
+		p.visible = false
+	}
+}
+
+// Abort removes the bar after a failed run (the caller prints the error).
+func (p *Progress) Abort() {
+	if p == nil {
+		return
+	}
+	p.mu.Lock()
+	defer p.mu.Unlock()
+	p.clear()
+}
+
+// Finish removes the bar and prints the summary of st.
+func (p *Progress) Finish(st Stats, dir string) {
+	if p == nil {
+		return
+	}
+	p.mu.Lock()
+	defer p.mu.Unlock()
+	p.clear()
+	fmt.Fprint(p.w, Summary(st, dir))
+}
+
+// Summary is the end-of-run report, one line plus a line per warning, e.g.
+// "published 12 feeds (3 written, 9 unchanged), 41,210 events, 5.2 MB in 0.84 s to public/".
+func Summary(st Stats, dir string) string {
+	var b strings.Builder
+	b.WriteString("published ")
+	if st.Shard.Sharded() {
+		fmt.Fprintf(&b, "shard %s: ", st.Shard)
+	}
+	fmt.Fprintf(&b, "%s %s (%s written, %s unchanged), %s events, %s in %.2f s to %s",
+		formatCount(st.Feeds), plural(st.Feeds, "feed", "feeds"),
+		formatCount(st.FeedsWritten), formatCount(st.FeedsUnchanged),
+		formatCount(st.Events), formatBytes(st.Bytes), st.Elapsed.Seconds(), displayDir(dir))
+	if st.Shard.Sharded() {
+		switch st.Index {
+		case IndexPending:
+			b.WriteString("; index.html and feeds.json wait for the other shards")
+		case IndexWritten:
+			b.WriteString("; all shards done, index.html and feeds.json written")
+		case IndexUnchanged:
+			b.WriteString("; all shards done, index.html and feeds.json unchanged")
+		}
+	}
+	b.WriteByte('\n')
+	if st.TempRemoved > 0 {
+		fmt.Fprintf(&b, "removed %d leftover temporary %s of an interrupted run\n",
+			st.TempRemoved, plural(st.TempRemoved, "file", "files"))
+	}
+	for _, f := range st.Oversize {
+		fmt.Fprintf(&b, "warning: %s is %s: some web calendars drop events from subscriptions over about 1 MB; shorten its window or split it by kind\n",
+			f.File, formatBytes(int64(f.Bytes)))
+	}
+	return b.String()
+}
+
+func displayDir(dir string) string {
+	if dir == "" || strings.HasSuffix(dir, string(os.PathSeparator)) || strings.HasSuffix(dir, "/") {
+		return dir
+	}
+	return dir + string(os.PathSeparator)
+}

@@ -1,0 +1,382 @@
+package publish
+
+import (
+	"context"
+	"crypto/sha256"
+	"encoding/hex"
+	"encoding/json"
+	"fmt"
+	"net/url"
+	"runtime"
+	"sort"
+	"strings"
+	"sync"
+	"time"
+
+	"heliocal/feed"
+	"heliocal/feed/ical"
+)
+
+// Names and content types of the files beside the feeds.
+const (
+	FeedsJSONName = "feeds.json"
+	IndexName     = "index.html"
+
+	ContentTypeICS  = "text/calendar; charset=utf-8"
+	ContentTypeJSON = "application/json"
+	ContentTypeHTML = "text/html; charset=utf-8"
+)
+
+// DefaultMaxFeedBytes is the feed size above which publish warns: some widely
+// used web calendars are reported to drop events from subscriptions larger
+// than about 1 MB.
+const DefaultMaxFeedBytes = ical.MaxAdvisedSize
+
+// Source is one feed to render: its id, known before any computation (so
+// sharding costs nothing), and a function computing its calendar. Build is
+// called at most once, possibly from another goroutine, and the calendar is
+// dropped as soon as it is encoded, so a large configuration never holds
+// every feed's entries at once.
+type Source struct {
+	ID    string
+	Build func(ctx context.Context) (*feed.Calendar, error)
+}
+
+// Calendars wraps calendars that are already built as sources.
+func Calendars(cals ...*feed.Calendar) []Source {
+	out := make([]Source, len(cals))
+	for i, c := range cals {
+		out[i] = Source{ID: c.ID, Build: func(context.Context) (*feed.Calendar, error) { return c, nil }}
+	}
+	return out
+}
+
+// RenderOptions control Render and Publish.
+type RenderOptions struct {
+	// Encode writes one calendar as iCalendar bytes; nil means
+	// ical.Marshal with Version.
+	Encode func(*feed.Calendar) ([]byte, error)
+	// Version is heliocal's version, written into each feed's PRODID.
+	Version string
+	// BaseURL is the public http(s) URL of the output directory, e.g.
+	// "https://sky.example.org/cal/". With it, feeds.json carries absolute
+	// URLs and the index offers https:// and webcal:// links; without it the
+	// index links are relative and there is no webcal:// link (it needs a host).
+	BaseURL string
+	// Title heads the index page; empty means "Sky calendars".
+	Title string
+	// Generated is the build's date written into feeds.json and the index. It
+	// must come from the inputs (e.g. the day the windows are counted from),
+	// never from the wall clock, so an unchanged night writes nothing. Zero
+	// means the latest Stamp of the feeds.
+	Generated time.Time
+	// Charts supplies the year's chart of a site for the index page; nil
+	// leaves the charts out. It is called once per site, from one goroutine.
+	Charts func(ctx context.Context, site feed.Site) (*SiteChart, error)
+	// Shard restricts the run to one part of the feeds; see Publish for what
+	// happens to feeds.json and index.html then.
+	Shard Shard
+	// Workers bounds the feeds rendered at once; zero means GOMAXPROCS.
+	Workers int
+	// MaxFeedBytes is the size above which a feed is listed in
+	// Stats.Oversize; zero means DefaultMaxFeedBytes, negative disables it.
+	MaxFeedBytes int
+	// Progress, when set, is told about every feed (a bar on a terminal).
+	Progress *Progress
+}
+
+func (o *RenderOptions) workers() int {
+	if o.Workers > 0 {
+		return o.Workers
+	}
+	return max(1, runtime.GOMAXPROCS(0))
+}
+
+func (o *RenderOptions) maxFeedBytes() int {
+	if o.MaxFeedBytes == 0 {
+		return DefaultMaxFeedBytes
+	}
+	return o.MaxFeedBytes
+}
+
+// base returns the validated base URL ending in "/", or nil.
+func (o *RenderOptions) base() (*url.URL, error) {
+	if o.BaseURL == "" {
+		return nil, nil
+	}
+	u, err := url.Parse(o.BaseURL)
+	if err != nil || (u.Scheme != "https" && u.Scheme != "http") || u.Host == "" || u.RawQuery != "" || u.Fragment != "" {
+		return nil, fmt.Errorf("publish: base URL %q: must be an absolute http:// or https:// URL without query or fragment", o.BaseURL)
+	}
+	if !strings.HasSuffix(u.Path, "/") {
+		u.Path += "/"
+		if u.RawPath != "" {
+			u.RawPath += "/"
+		}
+	}
+	return u, nil
+}
+
+// rendered is one encoded feed with what the index needs of it.
+type rendered struct {
+	info  FeedInfo
+	site  feed.Site
+	file  File
+	stamp time.Time
+}
+
+// select returns the sources of the run's shard, checking ids.
+func selectSources(srcs []Source, sh Shard) ([]Source, error) {
+	seen := make(map[string]bool, len(srcs))
+	var out []Source
+	for i, s := range srcs {
+		if err := checkName(s.ID + ".ics"); err != nil || s.ID == "" {
+			return nil, fmt.Errorf("publish: feeds[%d]: invalid feed id %q", i, s.ID)
+		}
+		if seen[s.ID] {
+			return nil, fmt.Errorf("publish: feeds[%d]: feed id %q appears twice", i, s.ID)
+		}
+		if s.Build == nil {
+			return nil, fmt.Errorf("publish: feeds[%d] (%s): no calendar builder", i, s.ID)
+		}
+		seen[s.ID] = true
+		if sh.Has(s.ID) {
+			out = append(out, s)
+		}
+	}
+	return out, nil
+}
+
+// idsDigest fingerprints the whole configuration's feed ids (every shard's),
+// so shard manifests of different configurations are never merged.
+func idsDigest(srcs []Source) string {
+	ids := make([]string, len(srcs))
+	for i, s := range srcs {
+		ids[i] = s.ID
+	}
+	sort.Strings(ids)
+	h := sha256.Sum256([]byte(strings.Join(ids, "\n")))
+	return hex.EncodeToString(h[:])
+}
+
+func checksum(b []byte) string {
+	h := sha256.Sum256(b)
+	return hex.EncodeToString(h[:])
+}
+
+// renderOne builds and encodes one feed; the calendar is dropped on return.
+func renderOne(ctx context.Context, s Source, enc func(*feed.Calendar) ([]byte, error), base *url.URL) (rendered, error) {
+	cal, err := s.Build(ctx)
+	if err != nil {
+		return rendered{}, fmt.Errorf("publish: feed %s: %w", s.ID, err)
+	}
+	if cal == nil {
+		return rendered{}, fmt.Errorf("publish: feed %s: no calendar", s.ID)
+	}
+	if cal.ID != s.ID {
+		return rendered{}, fmt.Errorf("publish: feed %s: calendar has id %q", s.ID, cal.ID)
+	}
+	data, err := enc(cal)
+	if err != nil {
+		return rendered{}, fmt.Errorf("publish: feed %s: %w", s.ID, err)
+	}
+	name := s.ID + ".ics"
+	sum := checksum(data)
+	u := cal.URL
+	if base != nil {
+		u = base.JoinPath(name).String()
+	}
+	return rendered{
+		info: FeedInfo{
+			ID: s.ID, Title: cal.Title, Site: cal.Site.ID, File: name, URL: u,
+			Events: len(cal.Entries), Bytes: len(data), Checksum: sum,
+		},
+		site:  cal.Site,
+		file:  File{Name: name, ContentType: ContentTypeICS, Data: data, Checksum: sum, ModTime: cal.Stamp.UTC()},
+		stamp: cal.Stamp,
+	}, nil
+}
+
+// renderAll renders srcs with a bounded pool of workers and hands each result
+// to emit in the order of srcs, from the calling goroutine. At most 2×workers
+// feeds are in flight (rendered but not yet emitted), which bounds memory.
+func renderAll(ctx context.Context, srcs []Source, opts *RenderOptions, emit func(rendered) error) error {
+	enc := opts.encoder()
+	base, err := opts.base()
+	if err != nil {
+		return err
+	}
+	ctx, cancel := context.WithCancel(ctx)
+	defer cancel()
+
+	workers := min(opts.workers(), max(1, len(srcs)))
+	type result struct {
+		r   rendered
+		err error
+	}
+	results := make([]chan result, len(srcs))
+	for i := range results {
+		results[i] = make(chan result, 1)
+	}
+	jobs := make(chan int)
+	slots := make(chan struct{}, 2*workers)
+	var wg sync.WaitGroup
+	for range workers {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range jobs {
+				if err := ctx.Err(); err != nil {
+					results[i] <- result{err: fmt.Errorf("publish: %w", err)}
+					continue
+				}
+				r, err := renderOne(ctx, srcs[i], enc, base)
+				results[i] <- result{r, err}
+			}
+		}()
+	}
+	go func() {
+		defer close(jobs)
+		for i := range srcs {
+			select {
+			case slots <- struct{}{}:
+			case <-ctx.Done():
+				return
+			}
+			select {
+			case jobs <- i:
+			case <-ctx.Done():
+				return
+			}
+		}
+	}()
+	defer wg.Wait()
+	for i := range srcs {
+		var res result
+		select {
+		case res = <-results[i]:
+		case <-ctx.Done():
+			return fmt.Errorf("publish: %w", ctx.Err())
+		}
+		if res.err != nil {
+			cancel()
+			return res.err
+		}
+		if err := emit(res.r); err != nil {
+			cancel()
+			return err
+		}
+		<-slots
+	}
+	return nil
+}
+
+// listing is what feeds.json and the index are made of.
+type listing struct {
+	generated time.Time
+	feeds     []FeedInfo  // sorted by id
+	sites     []feed.Site // one per site id, sorted by id
+}
+
+func (l *listing) add(r rendered) {
+	l.feeds = append(l.feeds, r.info)
+	for _, s := range l.sites {
+		if s.ID == r.site.ID {
+			return
+		}
+	}
+	l.sites = append(l.sites, r.site)
+}
+
+func (l *listing) finish(generated time.Time, stamps ...time.Time) {
+	sort.Slice(l.feeds, func(i, j int) bool { return l.feeds[i].ID < l.feeds[j].ID })
+	sort.Slice(l.sites, func(i, j int) bool { return l.sites[i].ID < l.sites[j].ID })
+	if generated.IsZero() {
+		for _, s := range stamps {
+			if s.After(generated) {
+				generated = s
+			}
+		}
+	}
+	l.generated = generated.UTC()
+}
+
+// feedsJSON is the layout of feeds.json.
+type feedsJSON struct {
+	Generated time.Time  `json:"generated"`
+	Feeds     []FeedInfo `json:"feeds"`
+}
+
+func marshalJSON(v any) ([]byte, error) {
+	b, err := json.MarshalIndent(v, "", "  ")
+	if err != nil {
+		return nil, fmt.Errorf("publish: %w", err)
+	}
+	return append(b, '\n'), nil
+}
+
+func (l *listing) feedsJSON() ([]byte, error) {
+	feeds := l.feeds
+	if feeds == nil {
+		feeds = []FeedInfo{}
+	}
+	return marshalJSON(feedsJSON{Generated: l.generated, Feeds: feeds})
+}
+
+// indexFiles renders feeds.json and index.html for the listing.
+func (l *listing) indexFiles(ctx context.Context, opts *RenderOptions) ([]File, error) {
+	fj, err := l.feedsJSON()
+	if err != nil {
+		return nil, err
+	}
+	html, err := renderIndex(ctx, l, opts)
+	if err != nil {
+		return nil, err
+	}
+	return []File{
+		{Name: FeedsJSONName, ContentType: ContentTypeJSON, Data: fj, Checksum: checksum(fj), ModTime: l.generated},
+		{Name: IndexName, ContentType: ContentTypeHTML, Data: html, Checksum: checksum(html), ModTime: l.generated},
+	}, nil
+}
+
+// Render builds every feed of the run in memory: the .ics files, feeds.json
+// and index.html (or, for a shard, its manifest; see Publish). feed/serve
+// holds the result; for writing a large configuration to disk, Publish keeps
+// memory bounded instead. Files are sorted by name.
+func Render(ctx context.Context, srcs []Source, opts RenderOptions) (*Bundle, error) {
+	sel, err := selectSources(srcs, opts.Shard)
+	if err != nil {
+		return nil, err
+	}
+	var l listing
+	var files []File
+	var stamps []time.Time
+	err = renderAll(ctx, sel, &opts, func(r rendered) error {
+		l.add(r)
+		files = append(files, r.file)
+		stamps = append(stamps, r.stamp)
+		if opts.Progress != nil {
+			opts.Progress.Feed(r.info, true)
+		}
+		return nil
+	})
+	if err != nil {
+		return nil, err
+	}
+	l.finish(opts.Generated, stamps...)
+	if opts.Shard.Sharded() {
+		m, err := l.manifest(opts.Shard, idsDigest(srcs))
+		if err != nil {
+			return nil, err
+		}
+		files = append(files, m)
+	} else {
+		more, err := l.indexFiles(ctx, &opts)
+		if err != nil {
+			return nil, err
+		}
+		files = append(files, more...)
+	}
+	sort.Slice(files, func(i, j int) bool { return files[i].Name < files[j].Name })
+	return &Bundle{Built: l.generated, Feeds: l.feeds, Files: files}, nil
+}

@@ -1,0 +1,5 @@
+//go:build !unix
+
+package publish
+
+func isEINVAL(error) bool { return false }

@@ -1,0 +1,390 @@
+package publish
+
+import (
+	"bytes"
+	"context"
+	"errors"
+	"fmt"
+	"io"
+	"io/fs"
+	"os"
+	"path/filepath"
+	"sort"
+	"strings"
+	"time"
+)
+
+// DefaultTempMaxAge is how old a leftover temporary file must be before a
+// writer removes it: older than any write in flight by another worker
+// sharing the directory, young enough that a crashed run's debris does not
+// linger past the next night.
+const DefaultTempMaxAge = 15 * time.Minute
+
+// FileMode is the mode of every published file: readable by a web server
+// running as another user. (os.CreateTemp makes 0600.)
+const FileMode fs.FileMode = 0o644
+
+// tempFile is what the writer needs of a temporary file; *os.File has it.
+// Tests wrap a real file to inject a failure part-way.
+type tempFile interface {
+	io.Writer
+	Name() string
+	Chmod(fs.FileMode) error
+	Sync() error
+	Close() error
+}
+
+// Writer writes files into Dir atomically: each file goes to a temporary file
+// in the same directory and is renamed over the old one, so a reader (or a
+// crash) sees either the old complete file or the new complete file, never a
+// mix. A file whose bytes are already on disk is not rewritten, so its
+// modification time, inode and HTTP validators stay put.
+//
+// A Writer may be used by one goroutine at a time; several writers (in
+// several processes) may share a directory as long as they write different
+// names or the same bytes.
+type Writer struct {
+	// Dir is the output directory; it is created (0755) when missing.
+	Dir string
+	// TempMaxAge is the age past which leftover temporary files of ours are
+	// removed at the start of WriteBundle; zero means DefaultTempMaxAge.
+	TempMaxAge time.Duration
+
+	// createTemp creates the temporary file; nil means os.CreateTemp.
+	// Overridden by tests to inject failures.
+	createTemp func(dir, pattern string) (tempFile, error)
+	// now is the clock used to age leftovers; nil means time.Now.
+	now func() time.Time
+}
+
+// Stats counts what a publish did.
+type Stats struct {
+	Shard          Shard // the run's shard (zero: every feed)
+	Feeds          int   // feeds in this run (this shard's, when sharded)
+	FeedsWritten   int   // .ics files written because their bytes changed
+	FeedsUnchanged int   // .ics files already up to date
+	FilesWritten   int   // every file written (feeds, feeds.json, index.html…)
+	FilesUnchanged int   // every file already up to date
+	Events         int   // entries across the run's feeds
+	Bytes          int64 // bytes of the run's .ics files
+	TempRemoved    int   // leftover temporary files of an earlier crash removed
+	// Oversize lists the feeds larger than RenderOptions.MaxFeedBytes.
+	Oversize []FeedInfo
+	// Index is what happened to feeds.json and index.html: IndexWritten,
+	// IndexUnchanged, or IndexPending (sharded, other shards not done yet).
+	Index   string
+	Elapsed time.Duration
+}
+
+// What happened to the index files (Stats.Index).
+const (
+	IndexWritten   = "written"
+	IndexUnchanged = "unchanged"
+	IndexPending   = "pending"
+)
+
+func (w *Writer) tempPattern(name string) string { return "." + name + ".tmp-*" }
+
+// isTempName reports whether base is one of our temporary names:
+// "." + final name + ".tmp-" + the digits os.CreateTemp puts for "*".
+func isTempName(base string) bool {
+	if !strings.HasPrefix(base, ".") {
+		return false
+	}
+	i := strings.LastIndex(base, ".tmp-")
+	if i <= 1 {
+		return false
+	}
+	digits := base[i+len(".tmp-"):]
+	if digits == "" {
+		return false
+	}
+	for _, r := range digits {
+		if r < '0' || r > '9' {
+			return false
+		}
+	}
+	return true
+}
+
+// checkName refuses names that would leave the directory or hide the file.
+func checkName(name string) error {
+	if name == "" || name != filepath.Base(name) || name == "." || name == ".." ||
+		strings.HasPrefix(name, ".") || strings.ContainsAny(name, `/\`) {
+		return fmt.Errorf("publish: invalid file name %q (want a plain name such as \"farm-sun.ics\")", name)
+	}
+	return nil
+}
+
+// prepare creates the directory and removes stale temporary files of ours.
+func (w *Writer) prepare() (removed int, err error) {
+	if w.Dir == "" {
+		return 0, errors.New("publish: output directory is empty")
+	}
+	if err := os.MkdirAll(w.Dir, 0o755); err != nil {
+		return 0, fmt.Errorf("publish: output directory: %w", err)
+	}
+	fi, err := os.Stat(w.Dir)
+	if err != nil {
+		return 0, fmt.Errorf("publish: output directory: %w", err)
+	}
+	if !fi.IsDir() {
+		return 0, fmt.Errorf("publish: output directory %s: not a directory", w.Dir)
+	}
+	return w.removeStaleTemps()
+}
+
+// removeStaleTemps removes our own leftover temporary files (".<name>.tmp-<digits>",
+// regular files only) older than TempMaxAge. Younger ones may belong to
+// another worker writing right now.
+func (w *Writer) removeStaleTemps() (int, error) {
+	ents, err := os.ReadDir(w.Dir)
+	if err != nil {
+		return 0, fmt.Errorf("publish: output directory: %w", err)
+	}
+	maxAge := w.TempMaxAge
+	if maxAge <= 0 {
+		maxAge = DefaultTempMaxAge
+	}
+	now := time.Now
+	if w.now != nil {
+		now = w.now
+	}
+	cutoff := now().Add(-maxAge)
+	n := 0
+	for _, e := range ents {
+		if !e.Type().IsRegular() || !isTempName(e.Name()) {
+			continue
+		}
+		fi, err := e.Info()
+		if err != nil || !fi.ModTime().Before(cutoff) {
+			continue
+		}
+		if err := os.Remove(filepath.Join(w.Dir, e.Name())); err == nil {
+			n++
+		}
+	}
+	return n, nil
+}
+
+// WriteFile writes one file atomically and makes the rename durable. It
+// reports whether the file was written (false: the same bytes were there).
+func (w *Writer) WriteFile(name string, data []byte) (bool, error) {
+	if w.Dir == "" {
+		return false, errors.New("publish: output directory is empty")
+	}
+	written, err := w.writeFile(name, data)
+	if err != nil || !written {
+		return written, err
+	}
+	return true, syncDir(w.Dir)
+}
+
+// writeFile is WriteFile without the directory fsync, so a batch of renames
+// pays for one.
+func (w *Writer) writeFile(name string, data []byte) (written bool, err error) {
+	if err := checkName(name); err != nil {
+		return false, err
+	}
+	final := filepath.Join(w.Dir, name)
+	same, err := sameRegularFile(final, data)
+	if err != nil || same {
+		return false, err
+	}
+
+	create := w.createTemp
+	if create == nil {
+		create = func(dir, pattern string) (tempFile, error) { return os.CreateTemp(dir, pattern) }
+	}
+	f, err := create(w.Dir, w.tempPattern(name))
+	if err != nil {
+		return false, fmt.Errorf("publish: write %s: %w", name, err)
+	}
+	tmp := f.Name()
+	closed := false
+	defer func() {
+		if err != nil {
+			if !closed {
+				f.Close()
+			}
+			os.Remove(tmp)
+		}
+	}()
+	n, err := f.Write(data)
+	if err == nil && n != len(data) {
+		err = io.ErrShortWrite
+	}
+	if err != nil {
+		return false, fmt.Errorf("publish: write %s: %w", name, err)
+	}
+	if err = f.Chmod(FileMode); err != nil {
+		return false, fmt.Errorf("publish: write %s: %w", name, err)
+	}
+	if err = f.Sync(); err != nil {
+		return false, fmt.Errorf("publish: write %s: %w", name, err)
+	}
+	closed = true
+	if err = f.Close(); err != nil {
+		return false, fmt.Errorf("publish: write %s: %w", name, err)
+	}
+	// Check again just before the rename: a directory or socket put there
+	// meanwhile must not be replaced either.
+	if _, err = sameRegularFile(final, nil); err != nil {
+		return false, err
+	}
+	if err = os.Rename(tmp, final); err != nil {
+		return false, fmt.Errorf("publish: write %s: %w", name, err)
+	}
+	return true, nil
+}
+
+// sameRegularFile reports whether path is a regular file holding exactly
+// data. A missing file is "not the same"; anything but a regular file (a
+// directory, a socket, a symbolic link…) is refused with an error, since
+// renaming over it would silently replace what someone put there.
+func sameRegularFile(path string, data []byte) (bool, error) {
+	fi, err := os.Lstat(path)
+	if errors.Is(err, fs.ErrNotExist) {
+		return false, nil
+	}
+	if err != nil {
+		return false, fmt.Errorf("publish: %w", err)
+	}
+	if !fi.Mode().IsRegular() {
+		return false, fmt.Errorf("publish: refusing to replace %s: not a regular file (%s)", path, describeMode(fi.Mode()))
+	}
+	if data == nil || fi.Size() != int64(len(data)) {
+		return false, nil
+	}
+	old, err := os.ReadFile(path)
+	if err != nil {
+		return false, fmt.Errorf("publish: %w", err)
+	}
+	if !bytes.Equal(old, data) {
+		return false, nil
+	}
+	// Same bytes; make sure a web server can still read them.
+	if fi.Mode().Perm() != FileMode {
+		if err := os.Chmod(path, FileMode); err != nil {
+			return false, fmt.Errorf("publish: %w", err)
+		}
+	}
+	return true, nil
+}
+
+func describeMode(m fs.FileMode) string {
+	switch {
+	case m&fs.ModeDir != 0:
+		return "a directory"
+	case m&fs.ModeSymlink != 0:
+		return "a symbolic link"
+	case m&fs.ModeSocket != 0:
+		return "a socket"
+	case m&fs.ModeNamedPipe != 0:
+		return "a named pipe"
+	case m&fs.ModeDevice != 0:
+		return "a device"
+	}
+	return "mode " + m.String()
+}
+
+// syncDir makes the renames in dir durable.
+func syncDir(dir string) error {
+	d, err := os.Open(dir)
+	if err != nil {
+		return fmt.Errorf("publish: sync directory: %w", err)
+	}
+	err = d.Sync()
+	if cerr := d.Close(); err == nil {
+		err = cerr
+	}
+	// Some file systems cannot fsync a directory; the rename is done anyway.
+	if err != nil && !errors.Is(err, errors.ErrUnsupported) && !isEINVAL(err) {
+		return fmt.Errorf("publish: sync directory: %w", err)
+	}
+	return nil
+}
+
+// phase orders a bundle's files: calendars first, then the machine-readable
+// lists, then the index page last, so that a reader never finds the index
+// pointing at a feed that is not there yet.
+func phase(name string) int {
+	switch {
+	case strings.HasSuffix(name, ".ics"):
+		return 0
+	case strings.HasSuffix(name, ".html"):
+		return 2
+	}
+	return 1
+}
+
+// WriteBundle writes every file of b into Dir: the .ics files, then
+// feeds.json (or a shard manifest), then index.html, each phase made durable
+// before the next begins. It stops at the first error; every file it has not
+// reached keeps its previous content.
+func (w *Writer) WriteBundle(ctx context.Context, b *Bundle) (Stats, error) {
+	start := time.Now()
+	var st Stats
+	removed, err := w.prepare()
+	st.TempRemoved = removed
+	if err != nil {
+		return st, err
+	}
+	files := make([]*File, len(b.Files))
+	for i := range b.Files {
+		files[i] = &b.Files[i]
+	}
+	sort.SliceStable(files, func(i, j int) bool {
+		pi, pj := phase(files[i].Name), phase(files[j].Name)
+		if pi != pj {
+			return pi < pj
+		}
+		return files[i].Name < files[j].Name
+	})
+	indexFiles, indexWritten := 0, 0
+	for i, f := range files {
+		if err := ctx.Err(); err != nil {
+			return st, fmt.Errorf("publish: %w", err)
+		}
+		written, err := w.writeFile(f.Name, f.Data)
+		if err != nil {
+			return st, err
+		}
+		ics := phase(f.Name) == 0
+		if ics {
+			st.Feeds++
+			st.Bytes += int64(len(f.Data))
+		} else {
+			indexFiles++
+		}
+		switch {
+		case written && ics:
+			st.FeedsWritten++
+		case ics:
+			st.FeedsUnchanged++
+		case written:
+			indexWritten++
+		}
+		if written {
+			st.FilesWritten++
+		} else {
+			st.FilesUnchanged++
+		}
+		if i+1 == len(files) || phase(files[i+1].Name) != phase(f.Name) {
+			if err := syncDir(w.Dir); err != nil {
+				return st, err
+			}
+		}
+	}
+	for _, fi := range b.Feeds {
+		st.Events += fi.Events
+	}
+	switch {
+	case indexWritten > 0:
+		st.Index = IndexWritten
+	case indexFiles > 0:
+		st.Index = IndexUnchanged
+	}
+	st.Elapsed = time.Since(start)
+	return st, nil
+}

@@ -1,0 +1,364 @@
+package publish
+
+import (
+	"bytes"
+	"context"
+	"errors"
+	"fmt"
+	"io/fs"
+	"net"
+	"os"
+	"path/filepath"
+	"strings"
+	"syscall"
+	"testing"
+	"time"
+)
+
+func testOptions() RenderOptions {
+	return RenderOptions{BaseURL: "https://sky.example.org/cal/", Title: "Cayuga valley sky calendars", Workers: 2}
+}
+
+func publishTo(t *testing.T, dir, rev string, opts RenderOptions) Stats {
+	t.Helper()
+	st, err := Publish(context.Background(), Calendars(testCalendars(t, rev)...), opts, &Writer{Dir: dir})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return st
+}
+
+type fileID struct {
+	mtime time.Time
+	ino   uint64
+}
+
+func fileIDs(t *testing.T, dir string) map[string]fileID {
+	t.Helper()
+	m := map[string]fileID{}
+	for name := range snapshot(t, dir) {
+		fi, err := os.Stat(filepath.Join(dir, name))
+		if err != nil {
+			t.Fatal(err)
+		}
+		id := fileID{mtime: fi.ModTime()}
+		if st, ok := fi.Sys().(*syscall.Stat_t); ok {
+			id.ino = st.Ino
+		}
+		m[name] = id
+	}
+	return m
+}
+
+func TestPublishTwiceWritesNothing(t *testing.T) {
+	dir := t.TempDir()
+	first := publishTo(t, dir, "", testOptions())
+	if first.FeedsWritten != 3 || first.FilesWritten != 5 || first.Index != IndexWritten {
+		t.Fatalf("first run: %+v, want 3 feeds and 5 files written", first)
+	}
+	before := snapshot(t, dir)
+	ids := fileIDs(t, dir)
+	for _, name := range []string{"orchard-sunrise.ics", "orchard-sunset.ics", "ice-camp-sun.ics", "feeds.json", "index.html"} {
+		if len(before[name]) == 0 {
+			t.Fatalf("%s missing or empty after publish; have %v", name, keys(before))
+		}
+	}
+
+	second := publishTo(t, dir, "", testOptions())
+	if second.FeedsWritten != 0 || second.FilesWritten != 0 || second.FeedsUnchanged != 3 || second.Index != IndexUnchanged {
+		t.Errorf("second run wrote something: %+v", second)
+	}
+	after := snapshot(t, dir)
+	if len(after) != len(before) {
+		t.Errorf("files: %v, then %v", keys(before), keys(after))
+	}
+	for name, b := range before {
+		if !bytes.Equal(after[name], b) {
+			t.Errorf("%s changed between two identical publishes", name)
+		}
+	}
+	for name, id := range fileIDs(t, dir) {
+		if id != ids[name] {
+			t.Errorf("%s rewritten: mtime/inode %v, then %v", name, ids[name], id)
+		}
+	}
+
+	// Render (what serve holds) gives the very bytes Publish wrote.
+	b, err := Render(context.Background(), Calendars(testCalendars(t, "")...), testOptions())
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, f := range b.Files {
+		if !bytes.Equal(f.Data, before[f.Name]) {
+			t.Errorf("Render's %s differs from the published file", f.Name)
+		}
+		if f.Checksum != checksum(before[f.Name]) {
+			t.Errorf("Render's %s checksum is not the SHA-256 of its bytes", f.Name)
+		}
+	}
+	if len(b.Files) != len(before) {
+		t.Errorf("Render made %d files, Publish %d", len(b.Files), len(before))
+	}
+	// And WriteBundle of that bundle writes nothing either.
+	st, err := (&Writer{Dir: dir}).WriteBundle(context.Background(), b)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if st.FilesWritten != 0 || st.FilesUnchanged != 5 || st.Feeds != 3 {
+		t.Errorf("WriteBundle of the same bundle: %+v", st)
+	}
+}
+
+func keys(m map[string][]byte) []string {
+	var out []string
+	for k := range m {
+		out = append(out, k)
+	}
+	return out
+}
+
+func TestPublishedFilesAreWorldReadable(t *testing.T) {
+	old := syscall.Umask(0o022)
+	defer syscall.Umask(old)
+	dir := t.TempDir()
+	// A file already holding the right bytes but with CreateTemp's 0600 (a
+	// copy made by hand, or an older tool) is fixed in place.
+	publishTo(t, dir, "", testOptions())
+	if err := os.Chmod(filepath.Join(dir, "feeds.json"), 0o600); err != nil {
+		t.Fatal(err)
+	}
+	publishTo(t, dir, "", testOptions())
+	for name := range snapshot(t, dir) {
+		fi, err := os.Stat(filepath.Join(dir, name))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if fi.Mode().Perm() != 0o644 {
+			t.Errorf("%s has mode %v, want 0644 (a web server running as another user must read it)", name, fi.Mode().Perm())
+		}
+	}
+}
+
+// faultyFile is a real temporary file whose writes fail with err once limit
+// bytes are written: the disk filling up half-way through a feed.
+type faultyFile struct {
+	*os.File
+	limit int
+	err   error
+}
+
+func (f *faultyFile) Write(p []byte) (int, error) {
+	if len(p) <= f.limit {
+		f.limit -= len(p)
+		return f.File.Write(p)
+	}
+	n, _ := f.File.Write(p[:f.limit])
+	f.limit = 0
+	return n, &fs.PathError{Op: "write", Path: f.File.Name(), Err: f.err}
+}
+
+func TestFailedPublishKeepsPublishedFiles(t *testing.T) {
+	tests := []struct {
+		name    string
+		failAt  int // the createTemp call that fails (1-based)
+		inject  func(dir, pattern string) (tempFile, error)
+		wantErr error
+	}{
+		{
+			name:   "disk full half-way through the second feed",
+			failAt: 2,
+			inject: func(dir, pattern string) (tempFile, error) {
+				f, err := os.CreateTemp(dir, pattern)
+				if err != nil {
+					return nil, err
+				}
+				return &faultyFile{File: f, limit: 700, err: syscall.ENOSPC}, nil
+			},
+			wantErr: syscall.ENOSPC,
+		},
+		{
+			name:   "no temporary file for the third feed",
+			failAt: 3,
+			inject: func(dir, pattern string) (tempFile, error) {
+				return nil, &fs.PathError{Op: "open", Path: filepath.Join(dir, pattern), Err: syscall.EDQUOT}
+			},
+			wantErr: syscall.EDQUOT,
+		},
+		{
+			name:   "disk full while writing index.html",
+			failAt: 5,
+			inject: func(dir, pattern string) (tempFile, error) {
+				f, err := os.CreateTemp(dir, pattern)
+				if err != nil {
+					return nil, err
+				}
+				return &faultyFile{File: f, limit: 100, err: syscall.ENOSPC}, nil
+			},
+			wantErr: syscall.ENOSPC,
+		},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			dir := t.TempDir()
+			publishTo(t, dir, "", testOptions())
+			old := snapshot(t, dir)
+			newBundle, err := Render(context.Background(), Calendars(testCalendars(t, " (revised)")...), testOptions())
+			if err != nil {
+				t.Fatal(err)
+			}
+
+			calls := 0
+			w := &Writer{Dir: dir, createTemp: func(dir, pattern string) (tempFile, error) {
+				calls++
+				if calls == tc.failAt {
+					return tc.inject(dir, pattern)
+				}
+				return os.CreateTemp(dir, pattern)
+			}}
+			_, err = Publish(context.Background(), Calendars(testCalendars(t, " (revised)")...), testOptions(), w)
+			if err == nil {
+				t.Fatal("publish succeeded despite the injected failure")
+			}
+			if !errors.Is(err, tc.wantErr) {
+				t.Errorf("errors.Is(%v, %v) = false", err, tc.wantErr)
+			}
+			if !strings.HasPrefix(err.Error(), "publish: write ") {
+				t.Errorf("error %q does not name the file", err)
+			}
+			if tmp := tempNames(t, dir); len(tmp) > 0 {
+				t.Errorf("temporary files left behind: %v", tmp)
+			}
+			// Every file is either its old complete version or its new one.
+			now := snapshot(t, dir)
+			changed := 0
+			for name, b := range old {
+				nf := newBundle.File(name)
+				switch {
+				case bytes.Equal(now[name], b):
+				case nf != nil && bytes.Equal(now[name], nf.Data):
+					changed++
+				default:
+					t.Errorf("%s is neither the published file nor the new one (%d bytes)", name, len(now[name]))
+				}
+			}
+			if changed != tc.failAt-1 {
+				t.Errorf("%d files replaced before the failure, want %d", changed, tc.failAt-1)
+			}
+			// The index still describes the feeds on disk when it is old.
+			if bytes.Equal(now["index.html"], old["index.html"]) && !bytes.Equal(now["feeds.json"], old["feeds.json"]) && tc.failAt != 5 {
+				t.Error("feeds.json replaced before every feed was written")
+			}
+			// The next run finishes the job.
+			publishTo(t, dir, " (revised)", testOptions())
+			for _, f := range newBundle.Files {
+				if got := snapshot(t, dir)[f.Name]; !bytes.Equal(got, f.Data) {
+					t.Errorf("after a good run %s is not the new version", f.Name)
+				}
+			}
+		})
+	}
+}
+
+func TestWriterRefusesNonRegularTargets(t *testing.T) {
+	sockDir, err := os.MkdirTemp("", "hc")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer os.RemoveAll(sockDir)
+	tests := []struct {
+		name string
+		make func(path string) error
+		want string
+	}{
+		{"directory", func(p string) error { return os.Mkdir(p, 0o755) }, "a directory"},
+		{"symbolic link", func(p string) error {
+			return os.Symlink(filepath.Join(filepath.Dir(p), "elsewhere.ics"), p)
+		}, "a symbolic link"},
+		{"unix socket", func(p string) error {
+			l, err := net.Listen("unix", p)
+			if err != nil {
+				return err
+			}
+			t.Cleanup(func() { l.Close() })
+			return nil
+		}, "a socket"},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			dir, err := os.MkdirTemp(sockDir, "d")
+			if err != nil {
+				t.Fatal(err)
+			}
+			target := filepath.Join(dir, "orchard-sunrise.ics")
+			if err := tc.make(target); err != nil {
+				t.Skipf("cannot make a %s here: %v", tc.name, err)
+			}
+			before, _ := os.Lstat(target)
+			_, err = Publish(context.Background(), Calendars(testCalendars(t, "")...), testOptions(), &Writer{Dir: dir})
+			if err == nil {
+				t.Fatal("publish replaced a non-regular file")
+			}
+			want := "publish: refusing to replace " + target + ": not a regular file (" + tc.want + ")"
+			if err.Error() != want {
+				t.Errorf("error\n got %q\nwant %q", err, want)
+			}
+			after, err := os.Lstat(target)
+			if err != nil || after.Mode() != before.Mode() {
+				t.Errorf("target changed: %v → %v (%v)", before.Mode(), after, err)
+			}
+			if tmp := tempNames(t, dir); len(tmp) > 0 {
+				t.Errorf("temporary files left behind: %v", tmp)
+			}
+			if _, err := os.Stat(filepath.Join(dir, "index.html")); err == nil {
+				t.Error("index.html written although a feed failed")
+			}
+		})
+	}
+}
+
+func TestWriterRejectsBadNames(t *testing.T) {
+	w := &Writer{Dir: t.TempDir()}
+	for _, name := range []string{"", ".", "..", "../up.ics", "a/b.ics", ".hidden.ics"} {
+		if _, err := w.WriteFile(name, []byte("x")); err == nil || !strings.Contains(err.Error(), "invalid file name") {
+			t.Errorf("WriteFile(%q): %v, want an invalid-name error", name, err)
+		}
+	}
+	if _, err := Publish(context.Background(), Calendars(testCalendars(t, "")[:1]...), RenderOptions{BaseURL: "ftp://x"}, w); err == nil ||
+		err.Error() != `publish: base URL "ftp://x": must be an absolute http:// or https:// URL without query or fragment` {
+		t.Errorf("bad base URL: %v", err)
+	}
+}
+
+func TestStaleTemporaryFilesRemoved(t *testing.T) {
+	dir := t.TempDir()
+	now := time.Date(2026, 12, 2, 3, 15, 0, 0, time.UTC)
+	files := map[string]time.Time{
+		".orchard-sunrise.ics.tmp-1234567": now.Add(-2 * time.Hour),    // ours, from a crashed run: removed
+		".index.html.tmp-99":               now.Add(-20 * time.Minute), // ours, crashed: removed
+		".feeds.json.tmp-42":               now.Add(-time.Minute),      // ours, maybe another worker's: kept
+		".notes.tmp-abc":                   now.Add(-48 * time.Hour),   // not our pattern: kept
+		"draft.tmp-1":                      now.Add(-48 * time.Hour),   // not hidden: kept
+	}
+	for name, mt := range files {
+		p := filepath.Join(dir, name)
+		if err := os.WriteFile(p, []byte("partial"), 0o600); err != nil {
+			t.Fatal(err)
+		}
+		if err := os.Chtimes(p, mt, mt); err != nil {
+			t.Fatal(err)
+		}
+	}
+	w := &Writer{Dir: dir, now: func() time.Time { return now }}
+	st, err := Publish(context.Background(), Calendars(testCalendars(t, "")...), testOptions(), w)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if st.TempRemoved != 2 {
+		t.Errorf("removed %d leftovers, want 2", st.TempRemoved)
+	}
+	got := tempNames(t, dir)
+	want := []string{".feeds.json.tmp-42", ".notes.tmp-abc", "draft.tmp-1"}
+	if fmt.Sprint(got) != fmt.Sprint(want) {
+		t.Errorf("left %v, want %v", got, want)
+	}
+}

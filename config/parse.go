@@ -373,26 +373,29 @@ func decodeProblems(err error) []FieldError {
 	var out []FieldError
 	var walk func(error)
 	walk = func(err error) {
-		if j, ok := err.(interface{ Unwrap() []error }); ok {
-			for _, e := range j.Unwrap() {
-				walk(e)
+		switch e := err.(type) {
+		case *mapstructure.DecodeError:
+			inner := e.Unwrap()
+			if j, ok := inner.(interface{ Unwrap() []error }); ok {
+				for _, x := range j.Unwrap() {
+					walk(x)
+				}
+				return
 			}
-			return
-		}
-		var de *mapstructure.DecodeError
-		if !errors.As(err, &de) {
+			out = append(out, problemFor(e.Name(), inner)...)
+		case interface{ Unwrap() []error }:
+			for _, x := range e.Unwrap() {
+				walk(x)
+			}
+		case interface{ Unwrap() error }:
+			if x := e.Unwrap(); x != nil {
+				walk(x)
+				return
+			}
 			out = append(out, FieldError{Path: "(file)", Msg: oneLine(err.Error())})
-			return
+		default:
+			out = append(out, FieldError{Path: "(file)", Msg: oneLine(err.Error())})
 		}
-		path := de.Name()
-		inner := de.Unwrap()
-		if j, ok := inner.(interface{ Unwrap() []error }); ok {
-			for _, e := range j.Unwrap() {
-				walk(e)
-			}
-			return
-		}
-		out = append(out, problemFor(path, inner)...)
 	}
 	walk(err)
 	return out
@@ -410,11 +413,17 @@ func problemFor(path string, err error) []FieldError {
 	case errors.As(err, &ve):
 		return []FieldError{{Path: shown, Value: ve.Value, Msg: ve.Msg, Hint: ve.Hint}}
 	case errors.As(err, &ue):
-		return []FieldError{{Path: shown, Value: showValue(ue.Value), Msg: "must be " + describeType(ue.Expected.Type()) + ", not " + describeValue(ue.Value), Hint: typeHint(ue.Expected.Type(), ue.Value)}}
+		return []FieldError{{Path: shown, Value: quotedValue(ue.Value), Msg: "must be " + describeType(ue.Expected.Type()) + ", not " + describeValue(ue.Value), Hint: typeHint(ue.Expected.Type(), ue.Value)}}
 	case errors.As(err, &pe):
-		return []FieldError{{Path: shown, Value: showValue(pe.Value), Msg: "must be " + describeType(pe.Expected.Type())}}
+		return []FieldError{{Path: shown, Value: quotedValue(pe.Value), Msg: "must be " + describeType(pe.Expected.Type())}}
 	}
 	msg := err.Error()
+	switch {
+	case strings.HasPrefix(msg, "expected a map or struct, got "):
+		return []FieldError{{Path: shown, Msg: "must be a mapping of keys, not " + kindWord(strings.Trim(strings.TrimPrefix(msg, "expected a map or struct, got "), `"`))}}
+	case strings.HasPrefix(msg, "source data must be an array or slice, got "):
+		return []FieldError{{Path: shown, Msg: "must be a list, not " + kindWord(strings.TrimPrefix(msg, "source data must be an array or slice, got "))}}
+	}
 	if rest, ok := strings.CutPrefix(msg, "has invalid keys: "); ok {
 		var out []FieldError
 		for _, key := range strings.Split(rest, ", ") {
@@ -530,6 +539,35 @@ func typeHint(t reflect.Type, v any) string {
 		}
 	}
 	return ""
+}
+
+// kindWord names a Go kind in the file's terms.
+func kindWord(k string) string {
+	switch k {
+	case "int", "int64", "uint64", "float64", "float32":
+		return "a number"
+	case "string":
+		return "text"
+	case "bool":
+		return "true/false"
+	case "slice", "array":
+		return "a list"
+	case "map", "struct":
+		return "a mapping"
+	}
+	return k
+}
+
+// quotedValue shows a value for a type problem: text in quotes, so that
+// `latitude: "95"` reads as the text it is.
+func quotedValue(v any) string {
+	if s, ok := v.(string); ok {
+		if len(s) > 80 {
+			s = s[:80] + "…"
+		}
+		return strconv.Quote(s)
+	}
+	return showValue(v)
 }
 
 func showValue(v any) string {

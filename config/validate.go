@@ -60,6 +60,11 @@ func (e FieldError) Error() string {
 // quoteValue shows plain tokens (numbers, ids, zone names) as they are and
 // anything else quoted, so spaces and empty strings stay visible.
 func quoteValue(v string) string {
+	if len(v) >= 2 && v[0] == '"' && v[len(v)-1] == '"' {
+		if _, err := strconv.Unquote(v); err == nil {
+			return v // already quoted
+		}
+	}
 	if len(v) > 120 {
 		v = v[:120] + "…"
 	}
@@ -95,42 +100,51 @@ func newValidationError(problems []FieldError) *ValidationError {
 	return &ValidationError{Problems: problems}
 }
 
-// comparePaths orders paths by top-level section (service, sites, feeds),
-// then naturally: feeds[2] before feeds[10].
+// comparePaths orders paths the way the file is laid out: keys in the
+// order of the configuration structs (service, sites, feeds; id, name,
+// latitude…), list items by index (feeds[2] before feeds[10]).
 func comparePaths(a, b string) int {
-	rank := func(p string) int {
-		switch {
-		case strings.HasPrefix(p, "service"):
-			return 0
-		case strings.HasPrefix(p, "sites"):
-			return 1
-		case strings.HasPrefix(p, "feeds"):
-			return 2
+	sa, sb := strings.Split(a, "."), strings.Split(b, ".")
+	prefix := ""
+	for i := 0; i < len(sa) && i < len(sb); i++ {
+		na, ia := splitSegment(sa[i])
+		nb, ib := splitSegment(sb[i])
+		if na != nb {
+			keys := keysAt(prefix)
+			pa, pb := slices.Index(keys, na), slices.Index(keys, nb)
+			if pa < 0 {
+				pa = len(keys)
+			}
+			if pb < 0 {
+				pb = len(keys)
+			}
+			if pa != pb {
+				return pa - pb
+			}
+			return strings.Compare(na, nb)
 		}
-		return 3
+		if ia != ib {
+			return ia - ib
+		}
+		if prefix != "" {
+			prefix += "."
+		}
+		prefix += sa[i]
 	}
-	if ra, rb := rank(a), rank(b); ra != rb {
-		return ra - rb
-	}
-	ia, ib := indexOf(a), indexOf(b)
-	if ia != ib {
-		return ia - ib
-	}
-	return 0 // keep the order in which problems were found
+	return len(sa) - len(sb)
 }
 
-// indexOf returns the first list index of a path ("feeds[12].id" → 12), or -1.
-func indexOf(p string) int {
-	open := strings.IndexByte(p, '[')
-	end := strings.IndexByte(p, ']')
-	if open < 0 || end < open {
-		return -1
+// splitSegment splits "feeds[12]" into "feeds" and 12 (-1 without index).
+func splitSegment(seg string) (string, int) {
+	open := strings.IndexByte(seg, '[')
+	if open < 0 || !strings.HasSuffix(seg, "]") {
+		return seg, -1
 	}
-	n, err := strconv.Atoi(p[open+1 : end])
+	n, err := strconv.Atoi(seg[open+1 : len(seg)-1])
 	if err != nil {
-		return -1
+		return seg, -1
 	}
-	return n
+	return seg[:open], n
 }
 
 type problems []FieldError

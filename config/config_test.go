@@ -1,0 +1,423 @@
+package config
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"io/fs"
+	"os"
+	"path/filepath"
+	"reflect"
+	"strings"
+	"testing"
+	"time"
+	_ "time/tzdata" // the tests do not depend on the machine's zoneinfo
+)
+
+const testdata = "../testdata/config"
+
+func loadTestdata(t *testing.T, name string) (*Config, error) {
+	t.Helper()
+	return Load(filepath.Join(testdata, name))
+}
+
+func problemsOf(t *testing.T, err error) []FieldError {
+	t.Helper()
+	var verr *ValidationError
+	if !errors.As(err, &verr) {
+		t.Fatalf("want a *ValidationError, got %T: %v", err, err)
+	}
+	return verr.Problems
+}
+
+// TestValidationErrors checks one file per problem: the error names the
+// field path and the offending value, and says what is wrong.
+func TestValidationErrors(t *testing.T) {
+	tests := []struct {
+		file  string
+		path  string // FieldError.Path
+		value string // FieldError.Value
+		msg   string // substring of FieldError.Msg
+		hint  string // substring of FieldError.Hint, "" = not checked
+		n     int    // expected number of problems; 0 means 1
+	}{
+		{"bad-latitude.yaml", "sites[0].latitude", "95", "must be within -90..90", "", 0},
+		{"bad-latitude-quoted.yaml", "sites[0].latitude", `"95"`, "must be a number, not text", "without quotes", 0},
+		{"bad-latitude-text.yaml", "sites[0].latitude", `"abc"`, "must be a number", "", 0},
+		{"bad-longitude.yaml", "sites[0].longitude", "-181.5", "must be within -180..180", "east positive", 0},
+		{"bad-elevation.yaml", "sites[0].elevation", "12000", "must be within -500..9000 metres", "not feet", 0},
+		{"bad-horizon.yaml", "sites[0].horizon", "60", "must be within -5..45 degrees", "", 0},
+		{"bad-timezone.yaml", "sites[0].timezone", "Europe/Zurik", "unknown time zone", `"Europe/Zurich"`, 0},
+		{"missing-timezone.yaml", "sites[0].timezone", "", "is required", "IANA", 0},
+		{"unknown-kind.yaml", "feeds[0].kinds[0]", "sunrize", "unknown kind", `did you mean "sunrise"?`, 0},
+		{"unknown-kind-mapping.yaml", "feeds[0].kinds[1].kind", "moonrize", "unknown kind", `"moonrise"`, 0},
+		{"duplicate-site-id.yaml", "sites[1].id", "north-field", "duplicate site id (also sites[0].id)", "", 0},
+		{"duplicate-feed-id.yaml", "feeds[1].id", "north-sun", "duplicate feed id (also feeds[0].id)", "", 0},
+		{"bad-site-id.yaml", "sites[0].id", "North Field", "must match [a-z0-9][a-z0-9-]*", `"north-field"`, 0},
+		{"bad-feed-id.yaml", "feeds[0].id", "north_sun", "must match [a-z0-9][a-z0-9-]*", `"north-sun"`, 0},
+		{"missing-site.yaml", "feeds[0].site", "north-feild", "no site has this id", `did you mean "north-field"?`, 0},
+		{"no-sites.yaml", "sites", "", "no sites", "", 2},
+		{"no-kinds.yaml", "feeds[0].kinds", "", "no kinds", "", 0},
+		{"window-too-long.yaml", "feeds[0].days_ahead", "4000", "window of 4030 days (days_back 30 + days_ahead 4000) is over 10 years", "", 0},
+		{"negative-days.yaml", "feeds[0].days_back", "-1", "must not be negative", "", 0},
+		{"bad-sun-altitude.yaml", "feeds[0].kinds[0]", "sun-altitude:95", "altitude in kind must be within -90..90", "", 0},
+		{"bad-sun-altitude-text.yaml", "feeds[0].kinds[0]", "sun-altitude:low", "malformed altitude", "", 0},
+		{"bad-photoperiod.yaml", "feeds[0].kinds[0]", "photoperiod:25h", "longer than 0 and shorter than 24h", "", 0},
+		{"bad-photoperiod-unit.yaml", "feeds[0].kinds[0]", "photoperiod:12", "malformed day length", "14h30m", 0},
+		{"bad-offset.yaml", "feeds[0].kinds[0].offset", "13h", "must be within -12h..12h", "", 0},
+		{"bad-offset-unit.yaml", "feeds[0].kinds[0].offset", "30", "a duration needs a unit", `"30m"`, 0},
+		{"malformed-offset.yaml", "feeds[0].kinds[0].offset", "-30 min", "malformed duration", "", 0},
+		{"offset-all-day.yaml", "feeds[0].kinds[0].offset", "1h", "has no meaning for daily-summary", "", 0},
+		{"bad-alarm-negative.yaml", "feeds[0].alarm", "-5m", "must not be negative", "", 0},
+		{"bad-alarm-long.yaml", "feeds[0].alarm", "200h", "must be at most 7 days", "", 0},
+		{"bad-max-illumination.yaml", "feeds[0].kinds[0].max_illumination", "1.5", "must be within 0..1", "", 0},
+		{"max-illumination-wrong-kind.yaml", "feeds[0].kinds[0].max_illumination", "0.5", "applies only to dark-window", "", 0},
+		{"bad-color.yaml", "feeds[0].color", "goldenrood", "not a CSS3 colour name", `did you mean "goldenrod"?`, 0},
+		{"bad-refresh.yaml", "service.refresh", "15 3 * *", "must have 5 fields, has 4", "minute hour", 0},
+		{"bad-refresh-field.yaml", "service.refresh", "61 3 * * *", "malformed cron expression", "", 0},
+		{"bad-refresh-zone.yaml", "service.refresh_zone", "Europe/Viena", "unknown time zone", `"Europe/Vienna"`, 0},
+		{"bad-base-url.yaml", "service.base_url", "sky.example.org/calendars", "must be an absolute http or https URL", "", 0},
+		{"bad-base-url-scheme.yaml", "service.base_url", "ftp://sky.example.org/calendars", "must be an absolute http or https URL", "", 0},
+		{"bad-listen.yaml", "service.listen", "8080", "must be host:port", "", 0},
+		{"bad-max-feed-bytes.yaml", "service.max_feed_bytes", "-1", "must not be negative", "", 0},
+		{"unknown-key.yaml", "sites[0].lattitude", "lattitude", "unknown key", `did you mean "latitude"?`, 0},
+		{"unknown-top-key.yaml", "feed", "feed", "unknown key", `did you mean "feeds"?`, 0},
+		{"bad-bool.yaml", "feeds[0].utc", `"yes"`, "must be true or false", "", 0},
+		{"bad-days-fraction.yaml", "feeds[0].days_ahead", "36.5", "must be a whole number", "", 0},
+		{"duplicate-kind.yaml", "feeds[0].kinds[1]", "june-solstice", `listed twice (also in feeds[0].kinds[0], "seasons")`, "", 0},
+		{"bad-title-control.yaml", "feeds[0].title", "North\rSun", "control character", "", 0},
+		{"bad-sites-shape.yaml", "sites", "", "must be a list, not a number", "", 0},
+		{"bad-types.toml", "sites[0].latitude", `"95"`, "must be a number, not text", "", 2},
+		{"bad-types.json", "feeds[0].kinds[0].offset", "30", "a duration needs a unit", "", 3},
+		{"bad-types.json", "feeds[0].days_ahead", "10.5", "must be a whole number", "", 3},
+	}
+	for _, tc := range tests {
+		t.Run(strings.TrimSuffix(tc.file, filepath.Ext(tc.file))+"/"+tc.path, func(t *testing.T) {
+			c, err := loadTestdata(t, tc.file)
+			if err == nil {
+				t.Fatalf("no error; config: %+v", c)
+			}
+			ps := problemsOf(t, err)
+			want := tc.n
+			if want == 0 {
+				want = 1
+			}
+			if len(ps) != want {
+				t.Errorf("%d problems, want %d:\n%v", len(ps), want, err)
+			}
+			var got *FieldError
+			for i := range ps {
+				if ps[i].Path == tc.path {
+					got = &ps[i]
+					break
+				}
+			}
+			if got == nil {
+				t.Fatalf("no problem at %s:\n%v", tc.path, err)
+			}
+			if got.Value != tc.value {
+				t.Errorf("value %q, want %q", got.Value, tc.value)
+			}
+			if !strings.Contains(got.Msg, tc.msg) {
+				t.Errorf("message %q does not contain %q", got.Msg, tc.msg)
+			}
+			if tc.hint != "" && !strings.Contains(got.Hint, tc.hint) {
+				t.Errorf("hint %q does not contain %q", got.Hint, tc.hint)
+			}
+			// The printed error names the file, the path and the value.
+			line := got.Error()
+			text := err.Error()
+			if !strings.Contains(text, filepath.Join(testdata, tc.file)+": "+line) {
+				t.Errorf("error text lacks the line %q:\n%s", line, text)
+			}
+			if !strings.HasPrefix(line, tc.path+": ") {
+				t.Errorf("line %q does not start with the path", line)
+			}
+			if tc.value != "" && !strings.Contains(line, quoteValue(tc.value)) {
+				t.Errorf("line %q does not show the value %q", line, tc.value)
+			}
+		})
+	}
+}
+
+// TestEveryProblemAtOnce checks that decoding problems (unknown zone and
+// kind, text for a number) and validation problems (ranges, duplicates,
+// references) of one file are all reported together.
+func TestEveryProblemAtOnce(t *testing.T) {
+	_, err := loadTestdata(t, "every-problem.yaml")
+	ps := problemsOf(t, err)
+	want := []string{
+		"service.listen",
+		"service.refresh",
+		"sites[0].latitude",
+		"sites[0].timezone",
+		"sites[1].longitude",
+		"feeds[0].kinds[0]",
+		"feeds[0].color",
+		"feeds[1].id",
+		"feeds[1].site",
+	}
+	var got []string
+	for _, p := range ps {
+		got = append(got, p.Path)
+	}
+	if !reflect.DeepEqual(got, want) {
+		t.Errorf("paths\n got %q\nwant %q\nerror:\n%v", got, want, err)
+	}
+	if n := strings.Count(err.Error(), "\n") + 1; n != len(want) {
+		t.Errorf("%d lines, want one per problem (%d):\n%v", n, len(want), err)
+	}
+}
+
+func TestGoodMinimalAndDefaults(t *testing.T) {
+	c, err := loadTestdata(t, "good-minimal.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := c.Service
+	if s.Listen != ":8080" || s.OutDir != "public" || s.Refresh != "15 3 * * *" || s.MaxFeedBytes != 1000000 || s.RefreshZone.Location != nil {
+		t.Errorf("service defaults: %+v", s)
+	}
+	f := c.Feeds[0]
+	if f.DaysBack != 30 || f.DaysAhead != 365 || f.Title != "north-sun" || f.Alarm != 0 || f.UTC {
+		t.Errorf("feed defaults: %+v", f)
+	}
+	if c.Sites[0].Name != "North Field" || c.Sites[0].TimeZone.Name() != "Europe/Zurich" {
+		t.Errorf("site: %+v", c.Sites[0])
+	}
+	want := []KindSpec{{Kind: Kind{Name: "sunrise"}}, {Kind: Kind{Name: "sunset"}}}
+	if !reflect.DeepEqual(f.Kinds, want) {
+		t.Errorf("kinds %+v, want %+v", f.Kinds, want)
+	}
+}
+
+func TestExplicitZeroWindowKept(t *testing.T) {
+	c, err := Parse(strings.NewReader(`
+sites: [{id: a, latitude: 1, longitude: 2, timezone: UTC}]
+feeds: [{id: f, site: a, kinds: [sunrise], days_back: 0}]
+`), "yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if c.Feeds[0].DaysBack != 0 || c.Feeds[0].DaysAhead != DefaultDaysAhead {
+		t.Errorf("days_back %d days_ahead %d, want 0 and %d", c.Feeds[0].DaysBack, c.Feeds[0].DaysAhead, DefaultDaysAhead)
+	}
+}
+
+// comparable gives a form of a Config that reflect.DeepEqual can compare:
+// zones by name.
+func comparable(c *Config) string {
+	var b strings.Builder
+	fmt.Fprintf(&b, "%+v zone=%s\n", c.Service, c.Service.RefreshZone.Name())
+	for _, s := range c.Sites {
+		fmt.Fprintf(&b, "%+v zone=%s\n", s, s.TimeZone.Name())
+	}
+	for _, f := range c.Feeds {
+		fmt.Fprintf(&b, "%+v\n", f)
+	}
+	return b.String()
+}
+
+func TestFormatParity(t *testing.T) {
+	var ref string
+	for _, name := range []string{"parity.yaml", "parity.toml", "parity.json"} {
+		c, err := loadTestdata(t, name)
+		if err != nil {
+			t.Fatalf("%s: %v", name, err)
+		}
+		got := comparable(c)
+		if ref == "" {
+			ref = got
+			// Spot-check the reference itself.
+			f := c.Feeds[0]
+			if f.DaysBack != 0 || f.DaysAhead != 200 || f.Alarm.D() != 15*time.Minute || !f.UTC ||
+				f.Kinds[1].Offset.D() != -30*time.Minute || f.Kinds[1].Label != "Close the gates" ||
+				f.Kinds[2].MaxIllumination != 0.2 || f.Kinds[3].Kind.DayLength != 14*time.Hour+30*time.Minute ||
+				!f.Kinds[3].AllDay || c.Service.RefreshZone.Name() != "Europe/Zurich" || c.Sites[0].Horizon != 1.5 {
+				t.Errorf("%s decoded wrongly:\n%s", name, got)
+			}
+			continue
+		}
+		if got != ref {
+			t.Errorf("%s differs from parity.yaml:\n got %s\nwant %s", name, got, ref)
+		}
+	}
+}
+
+func TestEnvOverrides(t *testing.T) {
+	env := map[string]string{
+		"HELIOCAL_LISTEN":         "127.0.0.1:9999",
+		"HELIOCAL_OUT_DIR":        "/srv/calendars",
+		"HELIOCAL_BASE_URL":       "https://cal.example.net/",
+		"HELIOCAL_REFRESH":        "0 4 * * *",
+		"HELIOCAL_REFRESH_ZONE":   "Pacific/Auckland",
+		"HELIOCAL_MAX_FEED_BYTES": "750000",
+		"HELIOCAL_SITES":          "ignored: only deployment settings are read",
+	}
+	lookup := func(k string) (string, bool) { v, ok := env[k]; return v, ok }
+	f, err := os.Open(filepath.Join(testdata, "parity.yaml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	c, err := ParseEnv(f, "yaml", lookup)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := c.Service
+	if s.Listen != "127.0.0.1:9999" || s.OutDir != "/srv/calendars" || s.BaseURL != "https://cal.example.net/" ||
+		s.Refresh != "0 4 * * *" || s.RefreshZone.Name() != "Pacific/Auckland" || s.MaxFeedBytes != 750000 {
+		t.Errorf("overrides not applied: %+v zone %s", s, s.RefreshZone.Name())
+	}
+
+	// A bad value from the environment is reported at its key, naming the variable.
+	env = map[string]string{"HELIOCAL_LISTEN": "nowhere", "HELIOCAL_MAX_FEED_BYTES": "1MB", "HELIOCAL_REFRESH_ZONE": "Mars/Olympus"}
+	_, err = ParseEnv(bytes.NewReader(DemoYAML()), "yaml", lookup)
+	ps := problemsOf(t, err)
+	if len(ps) != 3 {
+		t.Fatalf("want 3 problems, got:\n%v", err)
+	}
+	for _, want := range []string{
+		`service.listen: nowhere: must be host:port (set by HELIOCAL_LISTEN)`,
+		`service.refresh_zone: Mars/Olympus: unknown time zone (set by HELIOCAL_REFRESH_ZONE)`,
+		`service.max_feed_bytes: 1MB: must be a whole number of bytes (set by HELIOCAL_MAX_FEED_BYTES)`,
+	} {
+		if !strings.Contains(err.Error(), want) {
+			t.Errorf("error lacks %q:\n%v", want, err)
+		}
+	}
+
+	// Parse and Load never read the process environment.
+	t.Setenv("HELIOCAL_LISTEN", "not-an-address")
+	if _, err := Load(filepath.Join(testdata, "good-minimal.yaml")); err != nil {
+		t.Errorf("Load read the process environment: %v", err)
+	}
+}
+
+func TestDemo(t *testing.T) {
+	c := Demo()
+	if err := c.Validate(); err != nil {
+		t.Fatalf("demo invalid: %v", err)
+	}
+	var north, south, polar bool
+	for _, s := range c.Sites {
+		north = north || s.Latitude > 0
+		south = south || s.Latitude < 0
+		// Above the polar circle (about 66.56°) the Sun stays up at midsummer
+		// and down at midwinter (common practice: the polar circle is at
+		// 90° − obliquity of the ecliptic).
+		polar = polar || s.Latitude > 66.6 || s.Latitude < -66.6
+	}
+	if !north || !south || !polar {
+		t.Errorf("demo sites: north %v south %v polar %v; want all", north, south, polar)
+	}
+	used := map[string]bool{}
+	var offsetLabel, alarm, utc bool
+	for _, f := range c.Feeds {
+		if f.DaysBack > 30 || f.DaysAhead > 365 {
+			t.Errorf("%s: window %d+%d days; keep demo feeds to 30 back, 365 ahead at most", f.ID, f.DaysBack, f.DaysAhead)
+		}
+		if f.Color == "" {
+			t.Errorf("%s: no colour", f.ID)
+		}
+		alarm = alarm || f.Alarm > 0
+		utc = utc || f.UTC
+		for _, k := range f.Kinds {
+			used[k.Kind.Name] = true
+			for _, m := range k.Kind.Members() {
+				used[m.Name] = true
+			}
+			offsetLabel = offsetLabel || (k.Offset < 0 && k.Label != "")
+		}
+	}
+	if !offsetLabel || !alarm || !utc {
+		t.Errorf("demo lacks: offset with label %v, alarm %v, UTC feed %v", offsetLabel, alarm, utc)
+	}
+	var missing []string
+	for _, n := range KindNames {
+		if !used[n] {
+			missing = append(missing, n)
+		}
+	}
+	if len(missing) > 0 {
+		t.Errorf("demo does not use the kinds %v", missing)
+	}
+	// Demo returns a fresh copy each time.
+	c.Sites[0].Name = "changed"
+	if Demo().Sites[0].Name == "changed" {
+		t.Error("Demo shares state between calls")
+	}
+}
+
+// TestDemoDocumentsEveryKey checks that each key of the configuration is
+// explained in a comment of the demo file.
+func TestDemoDocumentsEveryKey(t *testing.T) {
+	text := string(DemoYAML())
+	var comments strings.Builder
+	for _, line := range strings.Split(text, "\n") {
+		if i := strings.Index(line, "#"); i >= 0 {
+			comments.WriteString(line[i:] + "\n")
+		}
+	}
+	for _, path := range []string{"", "service", "sites", "feeds", "feeds[0].kinds[0]"} {
+		for _, key := range keysAt(path) {
+			if !strings.Contains(comments.String(), key+":") {
+				t.Errorf("key %q (under %q) is not documented in a comment of demo.yaml", key, path)
+			}
+		}
+	}
+}
+
+func TestLoadErrors(t *testing.T) {
+	_, err := Load(filepath.Join(testdata, "does-not-exist.yaml"))
+	if !errors.Is(err, fs.ErrNotExist) || !strings.Contains(err.Error(), "does-not-exist.yaml") || !strings.Contains(err.Error(), "not found") {
+		t.Errorf("missing file: %v", err)
+	}
+	_, err = Load(filepath.Join(testdata, "parity.ini"))
+	if err == nil || !strings.Contains(err.Error(), `unknown file extension ".ini"`) {
+		t.Errorf("bad extension: %v", err)
+	}
+	_, err = Parse(strings.NewReader("sites: ["), "yaml")
+	if !errors.Is(err, ErrUnreadable) || !strings.Contains(err.Error(), "as yaml") {
+		t.Errorf("syntax error: %v", err)
+	}
+	_, err = Parse(strings.NewReader("{}"), "xml")
+	if err == nil || !strings.Contains(err.Error(), `unsupported format "xml"`) {
+		t.Errorf("format: %v", err)
+	}
+}
+
+func TestResolve(t *testing.T) {
+	good, err := os.ReadFile(filepath.Join(testdata, "good-minimal.yaml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	t.Chdir(t.TempDir())
+	env := func(k string) (string, bool) {
+		if k == "HELIOCAL_OUT_DIR" {
+			return "from-env", true
+		}
+		return "", false
+	}
+
+	// No flag, no ./heliocal.yaml: the built-in demo, with the environment.
+	c, src, err := Resolve("", env)
+	if err != nil || !src.Demo || src.String() != "built-in demo" || len(c.Sites) != len(Demo().Sites) || c.Service.OutDir != "from-env" {
+		t.Fatalf("demo: source %v, err %v", src, err)
+	}
+
+	// ./heliocal.yaml when present.
+	if err := os.WriteFile(DefaultPath, good, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	c, src, err = Resolve("", env)
+	if err != nil || src.Demo || src.Path != DefaultPath || c.Sites[0].ID != "north-field" || c.Service.OutDir != "from-env" {
+		t.Fatalf("./heliocal.yaml: source %v, err %v", src, err)
+	}
+
+	// --config wins, and a missing file is an error, not a fallback.
+	_, src, err = Resolve("elsewhere.yaml", env)
+	if !errors.Is(err, fs.ErrNotExist) || src.Path != "elsewhere.yaml" {
+		t.Fatalf("missing --config file: source %v, err %v", src, err)
+	}
+}

@@ -1,0 +1,356 @@
+package astro
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"slices"
+	"time"
+)
+
+// The Sun's daily events for any site: a shared ephemeris (the geocentric
+// Sun sampled once a day and interpolated, see horizon.go) and the searches
+// built on it.
+
+// Altitudes of the Sun's centre (degrees, geometric, topocentric) that
+// define the daily events. Rise and set include the standard refraction at
+// the horizon (34′) and the Sun's semidiameter (16′); the others are the
+// usual geometric definitions (twilight: USNO; golden and blue hour: common
+// practice).
+const (
+	SunriseAltitude      = -0.8333 // upper limb on a sea-level flat horizon
+	CivilTwilight        = -6.0
+	NauticalTwilight     = -12.0
+	AstronomicalTwilight = -18.0
+	GoldenHourHigh       = 6.0
+	GoldenHourLow        = -4.0
+	BlueHourHigh         = -4.0
+	BlueHourLow          = -6.0
+)
+
+// Observer is a place on the Earth.
+type Observer struct {
+	Latitude, Longitude float64 // degrees, geodetic (WGS 84), north and east positive
+	// Elevation is the height above sea level in metres. It lowers the
+	// rise/set altitude by the dip of the horizon, 1.76′·√h (common
+	// practice), and enters the parallax.
+	Elevation float64
+	// Horizon is the apparent altitude of the visible skyline in degrees
+	// (hills, buildings), as measured from the site; 0 means a sea or flat
+	// horizon and then Elevation's dip applies. See RiseSetAltitude.
+	Horizon float64
+}
+
+// ErrInvalidInput is matched (through errors.Is) by the errors this package
+// returns for malformed input such as an observer's latitude of 95°.
+var ErrInvalidInput = errors.New("astro: invalid input")
+
+// InputError reports an input value this package cannot use.
+type InputError struct {
+	Field string  // e.g. "observer latitude"
+	Value float64 // the value given
+	Msg   string  // what is expected
+}
+
+func (e *InputError) Error() string {
+	return fmt.Sprintf("astro: %s %v: %s", e.Field, e.Value, e.Msg)
+}
+
+// Is reports whether target is ErrInvalidInput.
+func (e *InputError) Is(target error) bool { return target == ErrInvalidInput }
+
+// Validate checks the observer's fields: latitude within −90..90, longitude
+// within −180..180, elevation within −500..20000 m, horizon within −5..45°.
+func (o Observer) Validate() error {
+	switch {
+	case !(o.Latitude >= -90 && o.Latitude <= 90):
+		return &InputError{"observer latitude", o.Latitude, "must be within -90..90 degrees"}
+	case !(o.Longitude >= -180 && o.Longitude <= 180):
+		return &InputError{"observer longitude", o.Longitude, "must be within -180..180 degrees (east positive)"}
+	case !(o.Elevation >= -500 && o.Elevation <= 20000):
+		return &InputError{"observer elevation", o.Elevation, "must be within -500..20000 metres"}
+	case !(o.Horizon >= -5 && o.Horizon <= 45):
+		return &InputError{"observer horizon", o.Horizon, "must be within -5..45 degrees"}
+	}
+	return nil
+}
+
+// RiseSetAltitude returns the geometric altitude of the Sun's centre at
+// sunrise and sunset for this observer, in degrees:
+//
+//   - Horizon == 0: SunriseAltitude (−0.8333°) lowered by the dip of the
+//     horizon 1.76′·√Elevation (Elevation in metres, ignored when ≤ 0);
+//   - Horizon != 0: the upper limb touches the skyline at apparent altitude
+//     Horizon, so the centre's geometric altitude is Horizon − R − 16′, R
+//     being the standard refraction at apparent altitude Horizon (Bennett's
+//     formula, Meeus eq. 16.4, 34.5′ at 0°, taken at −1° below −1°). The
+//     skyline is measured as seen, so no dip is added.
+func (o Observer) RiseSetAltitude() float64 {
+	if o.Horizon == 0 {
+		if o.Elevation <= 0 {
+			return SunriseAltitude
+		}
+		return SunriseAltitude - 1.76/60*math.Sqrt(o.Elevation)
+	}
+	h := max(o.Horizon, -1)
+	r := 1 / math.Tan((h+7.31/(h+4.4))*deg2rad) // arcminutes
+	return o.Horizon - r/60 - 16.0/60
+}
+
+// Ephemeris holds the Sun's apparent geocentric track (right ascension,
+// declination, distance and the Earth's rotation) over a span, sampled once a
+// day and interpolated: it does not depend on the site, so one ephemeris
+// serves any number of observers and thresholds. Interpolation error against
+// direct evaluation is measured in TestEphemerisInterpolation (below
+// 0.001″). An Ephemeris is immutable and safe for concurrent use.
+type Ephemeris struct {
+	from, to time.Time // queries allowed in [from, to]
+	sun      *track
+}
+
+// ephemerisMargin is how far beyond the requested span an ephemeris answers
+// queries; the samples reach two days further for the search's own margin.
+const ephemerisMargin = 2 * 24 * time.Hour
+
+// NewEphemeris builds the Sun's track for queries within [from − 2 days,
+// to + 2 days]. from and to must lie within MinTime..MaxTime (else a
+// *RangeError) and from must not be after to. Cost: one full solar position
+// (about 20 µs) per day of span.
+func NewEphemeris(from, to time.Time) (*Ephemeris, error) {
+	if err := checkTime("ephemeris start", from); err != nil {
+		return nil, err
+	}
+	if err := checkTime("ephemeris end", to); err != nil {
+		return nil, err
+	}
+	if to.Before(from) {
+		return nil, fmt.Errorf("astro: ephemeris end %s is before its start %s", to.UTC().Format(time.RFC3339), from.UTC().Format(time.RFC3339))
+	}
+	qa, qb := from.Add(-ephemerisMargin), to.Add(ephemerisMargin)
+	// samples at 0h UTC, from 4 days before the start to 4 days after the end
+	start := math.Floor(unixSeconds(from)/secondsPerDay)*secondsPerDay - 4*secondsPerDay
+	n := int(math.Ceil((unixSeconds(to)-start)/secondsPerDay)) + 5
+	const earthRadiiPerAU = auKm / earthRadiusKm
+	tr := newTrack(start, secondsPerDay, n, func(e Epoch) (ra, dec, dist float64) {
+		s := apparentSun(e.JDE)
+		return s.ra, s.dec, s.r * earthRadiiPerAU
+	})
+	return &Ephemeris{from: qa, to: qb, sun: tr}, nil
+}
+
+// Coverage returns the span in which the ephemeris answers queries.
+func (e *Ephemeris) Coverage() (from, to time.Time) { return e.from, e.to }
+
+// checkSpan validates a query span against the coverage.
+func (e *Ephemeris) checkSpan(from, to time.Time) error {
+	for _, t := range [2]time.Time{from, to} {
+		if t.Before(e.from) || t.After(e.to) {
+			return &RangeError{What: "time", Value: t.UTC().Format(time.RFC3339), Min: e.from.Format(time.RFC3339), Max: e.to.Format(time.RFC3339)}
+		}
+	}
+	return nil
+}
+
+// Direction tells whether the Sun crosses a threshold going up or down.
+type Direction int
+
+// Directions of a crossing.
+const (
+	Rising Direction = iota + 1
+	Setting
+)
+
+// String returns "rising" or "setting".
+func (d Direction) String() string {
+	switch d {
+	case Rising:
+		return "rising"
+	case Setting:
+		return "setting"
+	}
+	return fmt.Sprintf("Direction(%d)", int(d))
+}
+
+// Crossing is an instant when the Sun's centre crosses an altitude.
+type Crossing struct {
+	Time      time.Time // UTC, to the microsecond (solved to 1 ms)
+	Direction Direction
+}
+
+// SunCrossings returns every crossing of the Sun's centre through altitude
+// (degrees; topocentric and geometric: no refraction is applied, the
+// thresholds above already include it) in [from, to), sorted. For sunrise
+// and sunset pass o.RiseSetAltitude(). The span must lie within Coverage()
+// (else a *RangeError); an invalid observer gives an *InputError.
+func (e *Ephemeris) SunCrossings(o Observer, altitude float64, from, to time.Time) ([]Crossing, error) {
+	res, err := e.SunCrossingsMany(o, []float64{altitude}, from, to)
+	if err != nil {
+		return nil, err
+	}
+	return res[0], nil
+}
+
+// SunCrossingsMany is SunCrossings for several altitudes at once: it finds
+// the Sun's culminations once and reuses them for every threshold, which
+// roughly halves the cost of a site's daily events. The result has one
+// slice per altitude, in the order given.
+func (e *Ephemeris) SunCrossingsMany(o Observer, altitudes []float64, from, to time.Time) ([][]Crossing, error) {
+	if err := o.Validate(); err != nil {
+		return nil, err
+	}
+	for _, h := range altitudes {
+		if !(h >= -90 && h <= 90) {
+			return nil, &InputError{"altitude", h, "must be within -90..90 degrees"}
+		}
+	}
+	if err := e.checkSpan(from, to); err != nil {
+		return nil, err
+	}
+	st := newSite(o)
+	a, b := unixSeconds(from), unixSeconds(to)
+	ext := e.sun.extrema(st, a, b)
+	out := make([][]Crossing, len(altitudes))
+	var buf []crossing
+	for i, h := range altitudes {
+		buf = e.sun.crossings(st, ext, math.Sin(h*deg2rad), a, b, buf[:0])
+		cs := make([]Crossing, 0, len(buf))
+		for _, c := range buf {
+			t := timeFromUnix(c.t)
+			if t.Before(from) || !t.Before(to) {
+				continue
+			}
+			d := Setting
+			if c.rising {
+				d = Rising
+			}
+			cs = append(cs, Crossing{Time: t, Direction: d})
+		}
+		out[i] = cs
+	}
+	return out, nil
+}
+
+// Transit is an upper meridian transit of the Sun (solar noon).
+type Transit struct {
+	Time     time.Time // UTC
+	Altitude float64   // topocentric geometric altitude of the centre, degrees (negative in polar night)
+}
+
+// SunTransits returns the Sun's upper transits (local hour angle 0: solar
+// noon) in [from, to), one per day at every latitude, including polar night.
+func (e *Ephemeris) SunTransits(o Observer, from, to time.Time) ([]Transit, error) {
+	if err := o.Validate(); err != nil {
+		return nil, err
+	}
+	if err := e.checkSpan(from, to); err != nil {
+		return nil, err
+	}
+	st := newSite(o)
+	ts := e.sun.transits(st, unixSeconds(from), unixSeconds(to))
+	out := make([]Transit, 0, len(ts))
+	for _, s := range ts {
+		t := timeFromUnix(s)
+		if t.Before(from) || !t.Before(to) {
+			continue
+		}
+		out = append(out, Transit{Time: t, Altitude: math.Asin(e.sun.sinAltitude(st, s)) * rad2deg})
+	}
+	return out, nil
+}
+
+// SunAltitude returns the topocentric geometric altitude of the Sun's
+// centre (degrees, no refraction) at t.
+func (e *Ephemeris) SunAltitude(o Observer, t time.Time) (float64, error) {
+	if err := o.Validate(); err != nil {
+		return 0, err
+	}
+	if err := e.checkSpan(t, t); err != nil {
+		return 0, err
+	}
+	return math.Asin(e.sun.sinAltitude(newSite(o), unixSeconds(t))) * rad2deg, nil
+}
+
+// State says whether a threshold is crossed during a date.
+type State int
+
+// States of a date.
+const (
+	Crosses     State = iota // at least one crossing in the date
+	AlwaysAbove              // no crossing: the Sun stays above the threshold all day
+	AlwaysBelow              // no crossing: the Sun stays below the threshold all day
+)
+
+// String returns "crosses", "always-above" or "always-below".
+func (s State) String() string {
+	switch s {
+	case Crosses:
+		return "crosses"
+	case AlwaysAbove:
+		return "always-above"
+	case AlwaysBelow:
+		return "always-below"
+	}
+	return fmt.Sprintf("State(%d)", int(s))
+}
+
+// Day is the Sun's crossings of one threshold during one local date.
+type Day struct {
+	Date    time.Time   // local midnight (start of the date) in the location asked for
+	Rising  []time.Time // upward crossings within the date, in order (UTC)
+	Setting []time.Time // downward crossings within the date, in order (UTC)
+	State   State       // Crosses, or AlwaysAbove/AlwaysBelow when the date has no crossing at all
+}
+
+// SunDays returns one Day per local date from first to last inclusive
+// (dates read in loc; the clock part of first and last is ignored), with
+// the crossings of altitude (degrees, geometric; o.RiseSetAltitude() for
+// sunrise and sunset) that fall within each date, from its local midnight to
+// the next. A date may hold zero, one or two crossings of each direction
+// (e.g. the Sun sets just after midnight and again before the next one at
+// high latitude). The dates must lie within Coverage().
+func (e *Ephemeris) SunDays(o Observer, altitude float64, loc *time.Location, first, last time.Time) ([]Day, error) {
+	if loc == nil {
+		return nil, errors.New("astro: SunDays: nil location")
+	}
+	if err := o.Validate(); err != nil {
+		return nil, err
+	}
+	y, m, d := first.In(loc).Date()
+	start := time.Date(y, m, d, 0, 0, 0, 0, loc)
+	y, m, d = last.In(loc).Date()
+	stop := time.Date(y, m, d+1, 0, 0, 0, 0, loc)
+	if !start.Before(stop) {
+		return nil, fmt.Errorf("astro: SunDays: last date %s is before the first %s", last.In(loc).Format(time.DateOnly), first.In(loc).Format(time.DateOnly))
+	}
+	cs, err := e.SunCrossings(o, altitude, start, stop)
+	if err != nil {
+		return nil, err
+	}
+	st := newSite(o)
+	s0 := math.Sin(altitude * deg2rad)
+	var days []Day
+	i := 0
+	for day := start; day.Before(stop); {
+		y, m, d := day.Date()
+		next := time.Date(y, m, d+1, 0, 0, 0, 0, loc)
+		dd := Day{Date: day}
+		for ; i < len(cs) && cs[i].Time.Before(next); i++ {
+			if cs[i].Direction == Rising {
+				dd.Rising = append(dd.Rising, cs[i].Time)
+			} else {
+				dd.Setting = append(dd.Setting, cs[i].Time)
+			}
+		}
+		if len(dd.Rising)+len(dd.Setting) == 0 {
+			mid := unixSeconds(day) + 0.5*unixSeconds(next) - 0.5*unixSeconds(day)
+			if e.sun.sinAltitude(st, mid) > s0 {
+				dd.State = AlwaysAbove
+			} else {
+				dd.State = AlwaysBelow
+			}
+		}
+		days = append(days, dd)
+		day = next
+	}
+	return slices.Clip(days), nil
+}

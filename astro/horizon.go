@@ -1,0 +1,410 @@
+package astro
+
+// Horizon events of any body: threshold crossings of the altitude, the
+// extrema of the altitude (upper and lower culminations) and meridian
+// transits, for an observer on the Earth.
+//
+// The search is generic over a body track, so the Sun (ephemeris.go) and the
+// Moon share it. The internal hook is:
+//
+//	tr := newTrack(start, step, n, func(e Epoch) (ra, dec, dist float64) {
+//		// apparent geocentric right ascension and declination of date
+//		// (radians) and distance from the Earth's centre (Earth radii,
+//		// earthRadiusKm) at epoch e
+//	})
+//	st := newSite(o)                        // observer, validated by o.validate()
+//	ext := tr.extrema(st, a, b)             // culminations covering [a, b] (Unix s)
+//	xs := tr.crossings(st, ext, h0, a, b)   // crossings of geometric altitude h0 (rad) in [a, b)
+//	ts := tr.transits(st, a, b)             // upper meridian transits in [a, b)
+//	sh := tr.sinAltitude(st, sec)           // sine of the topocentric altitude
+//
+// A track samples the body once per step seconds (the Sun: one day) at UTC
+// instants start + k·step and interpolates with 4-point (cubic) Lagrange
+// polynomials. It stores the declination, the distance and the smooth part of
+// the Greenwich hour angle: GHA − ω·(t − start) − ω·(leap seconds since
+// 1972), ω = 360.98564736629°/day, so the Earth's rotation and UT1 − UTC
+// steps at leap seconds are added exactly at each query. The track covers
+// its samples except one step at the start and two at the end (the cubic
+// stencil); callers keep their windows inside coverage().
+//
+// Altitudes are topocentric and geometric (no refraction: thresholds such
+// as −0.8333° include it): the body's geocentric vector minus the
+// observer's geocentric position (WGS 84 ellipsoid, height included; Meeus
+// ch. 11), projected on the local vertical. For the Sun this is the parallax
+// of 8.794″/r (r in au); for the Moon about a degree.
+//
+// The crossing search never relies on sampling the altitude: between two
+// consecutive extrema of the altitude the altitude is monotonic, so each such
+// interval holds at most one crossing of any threshold, and holds one exactly
+// when the threshold lies between the two extreme values. The extrema are
+// found from the instants of hour angle 0 and 180° (Newton's method on the
+// interpolated hour angle) refined by Newton's method on the numerical
+// derivative of the altitude: near the poles they drift far from the
+// meridian (about 4° of hour angle at 89° latitude for the Sun). A crossing
+// is then solved by the secant method, safeguarded by bisection within its
+// interval, to 1 ms, starting from the classical hour-angle estimate
+// cos H = (sin h₀ − sin φ sin δ) / (cos φ cos δ) (Meeus ch. 15). When the
+// altitude has no extremum near a meridian passage (only within about 0.1°
+// of a pole for the Sun), that passage is used as the interval bound.
+
+import (
+	"math"
+	"slices"
+)
+
+// siderealRate is ω, the Earth's rotation rate on the mean equinox in
+// radians per second of UT1 (Meeus eq. 12.4).
+const siderealRate = 360.98564736629 * deg2rad / secondsPerDay
+
+// auKm is the astronomical unit in km (IAU 2012).
+const auKm = 149597870.7
+
+// track is a body's geocentric path sampled at a fixed step.
+type track struct {
+	start, step float64   // Unix seconds of sample 0, spacing in seconds
+	g, dec, dist []float64 // smooth GHA part (rad, unwrapped), declination (rad), distance (Earth radii)
+	leaps        []float64 // leap-second instants within the track (Unix s)
+	leap0        float64   // leap seconds since 1972 at start
+	rate         float64   // mean rate of the Greenwich hour angle, rad/s
+}
+
+// leapCount returns the leap seconds inserted since 1972-01-01 at Unix
+// second sec (0 before 1972).
+func leapCount(sec float64) float64 {
+	if sec < utcLeapStart {
+		return 0
+	}
+	return taiMinusUTC(sec) - 10
+}
+
+// newTrack samples sample() at start + k·step, k = 0..n−1. Distances are in
+// Earth radii.
+func newTrack(start, step float64, n int, sample func(e Epoch) (ra, dec, dist float64)) *track {
+	tr := &track{start: start, step: step, g: make([]float64, n), dec: make([]float64, n), dist: make([]float64, n)}
+	end := start + float64(n-1)*step
+	tr.leap0 = leapCount(start)
+	for _, l := range leapSeconds {
+		if l > start && l <= end {
+			tr.leaps = append(tr.leaps, l)
+		}
+	}
+	for k := range n {
+		sec := start + float64(k)*step
+		e := epochOf(sec)
+		ra, dec, dist := sample(e)
+		dpsi, deps := nutationRad(e.JDE)
+		gast := meanSiderealRaw(e.JDUT1)*deg2rad + dpsi*math.Cos(meanObliquityRad(e.JDE)+deps)
+		g := gast - ra - siderealRate*(sec-start) - siderealRate*leapCount(sec)
+		if k > 0 {
+			g = tr.g[k-1] + math.Remainder(g-tr.g[k-1], 2*math.Pi)
+		}
+		tr.g[k], tr.dec[k], tr.dist[k] = g, dec, dist
+	}
+	tr.rate = siderealRate
+	if n > 1 {
+		tr.rate += (tr.g[n-1] - tr.g[0]) / (end - start)
+	}
+	return tr
+}
+
+// coverage returns the span (Unix s) inside which the track interpolates.
+func (tr *track) coverage() (a, b float64) {
+	return tr.start + tr.step, tr.start + float64(len(tr.g)-2)*tr.step
+}
+
+// weights returns the sample index k and the cubic Lagrange weights for
+// samples k−1..k+2 at Unix second sec.
+func (tr *track) weights(sec float64) (int, [4]float64) {
+	x := (sec - tr.start) / tr.step
+	k := int(math.Floor(x))
+	if k < 1 {
+		k = 1
+	} else if k > len(tr.g)-3 {
+		k = len(tr.g) - 3
+	}
+	p := x - float64(k)
+	pm1, pp1, pm2 := p-1, p+1, p-2
+	return k, [4]float64{
+		-p * pm1 * pm2 / 6,
+		pp1 * pm1 * pm2 / 2,
+		-pp1 * p * pm2 / 2,
+		pp1 * p * pm1 / 6,
+	}
+}
+
+func interp(v []float64, k int, w *[4]float64) float64 {
+	return w[0]*v[k-1] + w[1]*v[k] + w[2]*v[k+1] + w[3]*v[k+2]
+}
+
+// at returns the Greenwich hour angle (rad, not reduced), declination (rad)
+// and distance (Earth radii) at Unix second sec.
+func (tr *track) at(sec float64) (gha, dec, dist float64) {
+	k, w := tr.weights(sec)
+	return tr.ghaFrom(sec, k, &w), interp(tr.dec, k, &w), interp(tr.dist, k, &w)
+}
+
+func (tr *track) ghaFrom(sec float64, k int, w *[4]float64) float64 {
+	leaps := tr.leap0
+	for _, l := range tr.leaps {
+		if sec >= l {
+			leaps++
+		}
+	}
+	return interp(tr.g, k, w) + siderealRate*(sec-tr.start) + siderealRate*leaps
+}
+
+// hourAngle returns the local hour angle (rad, not reduced) at sec.
+func (tr *track) hourAngle(st *site, sec float64) float64 {
+	k, w := tr.weights(sec)
+	return tr.ghaFrom(sec, k, &w) + st.lon
+}
+
+// site is an observer prepared for altitude computations.
+type site struct {
+	lat, lon   float64 // geodetic latitude, east longitude, radians
+	sinLat     float64
+	cosLat     float64
+	rhoSin     float64 // ρ sin φ′, Earth radii (Meeus ch. 11)
+	rhoCos     float64 // ρ cos φ′, Earth radii
+	latDegrees float64
+}
+
+// newSite prepares an observer; o must be valid.
+func newSite(o Observer) *site {
+	phi := o.Latitude * deg2rad
+	ba := 1 - earthFlattening
+	u := math.Atan(ba * math.Tan(phi))
+	su, cu := math.Sincos(u)
+	sp, cp := math.Sincos(phi)
+	hr := o.Elevation / (earthRadiusKm * 1000)
+	st := &site{lat: phi, lon: o.Longitude * deg2rad, sinLat: sp, cosLat: cp, latDegrees: o.Latitude}
+	st.rhoSin = ba*su + hr*sp
+	st.rhoCos = cu + hr*cp
+	if math.Abs(o.Latitude) == 90 {
+		st.rhoSin = math.Copysign(ba+hr, o.Latitude)
+		st.rhoCos = 0
+	}
+	return st
+}
+
+// sinAltitudeFrom returns the sine of the topocentric altitude of a body at
+// local hour angle H, declination dec (rad) and geocentric distance dist
+// (Earth radii).
+func (st *site) sinAltitudeFrom(H, dec, dist float64) float64 {
+	sH, cH := math.Sincos(H)
+	sd, cd := math.Sincos(dec)
+	x := dist*cd*cH - st.rhoCos
+	y := dist * cd * sH
+	z := dist*sd - st.rhoSin
+	return (x*st.cosLat + z*st.sinLat) / math.Sqrt(x*x+y*y+z*z)
+}
+
+// sinAltitude returns the sine of the body's topocentric geometric altitude
+// at Unix second sec.
+func (tr *track) sinAltitude(st *site, sec float64) float64 {
+	k, w := tr.weights(sec)
+	H := tr.ghaFrom(sec, k, &w) + st.lon
+	return st.sinAltitudeFrom(H, interp(tr.dec, k, &w), interp(tr.dist, k, &w))
+}
+
+// extremum is a node of the altitude curve: an upper or lower culmination
+// (or, where the altitude has none, the meridian passage itself).
+type extremum struct {
+	t     float64 // Unix seconds
+	sinH  float64 // sine of the altitude at t
+	upper bool    // near hour angle 0 (maximum) rather than 180° (minimum)
+}
+
+// passage returns the first instant ≥ from at which the local hour angle
+// equals target modulo 2π, solved to 0.1 ms.
+func (tr *track) passage(st *site, from, target float64) float64 {
+	d := math.Mod(target-tr.hourAngle(st, from), 2*math.Pi)
+	if d < 0 {
+		d += 2 * math.Pi
+	}
+	t := from + d/tr.rate
+	for range 8 {
+		e := math.Remainder(tr.hourAngle(st, t)-target, 2*math.Pi)
+		t -= e / tr.rate
+		if math.Abs(e/tr.rate) < 1e-4 {
+			break
+		}
+	}
+	return t
+}
+
+// extrema returns the culminations of the body from the last one at or
+// before a − 1 day... up to the first one after b + 1 day (Unix s), in order,
+// alternating upper and lower.
+func (tr *track) extrema(st *site, a, b float64) []extremum {
+	lo, hi := tr.coverage()
+	a = max(a-secondsPerDay, lo)
+	b = min(b+secondsPerDay, hi)
+	out := make([]extremum, 0, int((b-a)/(tr.step/2))+4)
+	t := a
+	H := math.Mod(tr.hourAngle(st, t), 2*math.Pi)
+	if H < 0 {
+		H += 2 * math.Pi
+	}
+	m := math.Floor(H/math.Pi) + 1 // next multiple of π
+	for {
+		target := m * math.Pi
+		upper := math.Mod(m, 2) == 0
+		tp := tr.passage(st, t, target)
+		if tp > b {
+			break
+		}
+		out = append(out, tr.refineExtremum(st, tp, upper))
+		t = tp + 1
+		m++
+	}
+	return out
+}
+
+// refineExtremum finds the altitude extremum near the meridian passage tp.
+func (tr *track) refineExtremum(st *site, tp float64, upper bool) extremum {
+	const eps = 60.0 // s
+	maxShift := 0.2 * math.Pi / tr.rate
+	t := tp
+	y0 := tr.sinAltitude(st, t)
+	for range 12 {
+		ym, yp := tr.sinAltitude(st, t-eps), tr.sinAltitude(st, t+eps)
+		d1 := (yp - ym) / (2 * eps)
+		d2 := (yp - 2*y0 + ym) / (eps * eps)
+		if (upper && !(d2 < 0)) || (!upper && !(d2 > 0)) {
+			break // no extremum here (next to a pole): keep the last point
+		}
+		step := -d1 / d2
+		if math.Abs(step) > 3*3600 {
+			step = math.Copysign(3*3600, step)
+		}
+		if math.Abs(t+step-tp) > maxShift {
+			break
+		}
+		if math.Abs(step) < 60 {
+			// Newton's error is now below 0.1 s: take the step and its
+			// Taylor value (exact to far below 1e-12).
+			return extremum{t: t + step, sinH: y0 + step*(d1+0.5*d2*step), upper: upper}
+		}
+		t += step
+		y0 = tr.sinAltitude(st, t)
+	}
+	return extremum{t: t, sinH: y0, upper: upper}
+}
+
+// crossing is one threshold crossing, Unix seconds.
+type crossing struct {
+	t      float64
+	rising bool
+}
+
+// crossings returns the crossings of the altitude whose sine is sinH0 in
+// [a, b) (Unix s), in order, using the extrema ext (from tr.extrema over a
+// span covering [a, b]).
+func (tr *track) crossings(st *site, ext []extremum, sinH0, a, b float64, out []crossing) []crossing {
+	for i := 0; i+1 < len(ext); i++ {
+		e0, e1 := ext[i], ext[i+1]
+		if e1.t < a || e0.t >= b {
+			continue
+		}
+		f0, f1 := e0.sinH-sinH0, e1.sinH-sinH0
+		if !(f0 < 0 && f1 > 0) && !(f0 > 0 && f1 < 0) {
+			continue
+		}
+		rising := f1 > 0
+		t := tr.solve(st, sinH0, e0.t, f0, e1.t, f1, tr.guess(st, sinH0, e0, e1, rising))
+		if t >= a && t < b {
+			out = append(out, crossing{t: t, rising: rising})
+		}
+	}
+	return out
+}
+
+// guess estimates a crossing time within (e0, e1) by the hour-angle
+// formula.
+func (tr *track) guess(st *site, sinH0 float64, e0, e1 extremum, rising bool) float64 {
+	mid := 0.5 * (e0.t + e1.t)
+	_, dec, _ := tr.at(mid)
+	sd, cd := math.Sincos(dec)
+	den := st.cosLat * cd
+	if den == 0 {
+		return mid
+	}
+	c := (sinH0 - st.sinLat*sd) / den
+	if c < -1 || c > 1 {
+		return mid
+	}
+	H0 := math.Acos(c)
+	var g float64
+	if rising { // from the lower to the upper culmination: H = −H0
+		g = e1.t - H0/tr.rate
+	} else {
+		g = e0.t + H0/tr.rate
+	}
+	if !(g > e0.t && g < e1.t) {
+		return mid
+	}
+	return g
+}
+
+// solve finds the root of sinAltitude − sinH0 in the bracket [a, b] (fa, fb
+// of opposite signs) from the estimate g: secant steps kept inside the
+// shrinking bracket, bisection when they fail, to 1 ms.
+func (tr *track) solve(st *site, sinH0, a, fa, b, fb, g float64) float64 {
+	f := func(t float64) float64 { return tr.sinAltitude(st, t) - sinH0 }
+	x0, f0 := g, f(g)
+	if f0 == 0 {
+		return x0
+	}
+	if (f0 < 0) == (fa < 0) {
+		a, fa = x0, f0
+	} else {
+		b, fb = x0, f0
+	}
+	// Second point: Newton step with the mean slope of the bracket's end
+	// nearer in sign, or simply the bracket end.
+	x1, f1 := a, fa
+	if math.Abs(b-x0) < math.Abs(x0-a) {
+		x1, f1 = b, fb
+	}
+	for i := 0; i < 100; i++ {
+		var x2 float64
+		if f1 != f0 {
+			x2 = x1 - f1*(x1-x0)/(f1-f0)
+		}
+		if f1 == f0 || !(x2 > a && x2 < b) || i > 40 {
+			x2 = 0.5 * (a + b)
+		}
+		f2 := f(x2)
+		if f2 == 0 {
+			return x2
+		}
+		if (f2 < 0) == (fa < 0) {
+			a, fa = x2, f2
+		} else {
+			b, fb = x2, f2
+		}
+		if math.Abs(x2-x1) < 1e-3 || b-a < 1e-3 {
+			return x2
+		}
+		x0, f0, x1, f1 = x1, f1, x2, f2
+	}
+	return 0.5 * (a + b)
+}
+
+// transits returns the upper meridian transits (hour angle 0) in [a, b).
+func (tr *track) transits(st *site, a, b float64) []float64 {
+	var out []float64
+	t := a
+	for {
+		tp := tr.passage(st, t, 0)
+		if tp >= b {
+			break
+		}
+		if tp >= a {
+			out = append(out, tp)
+		}
+		t = tp + 1
+	}
+	return slices.Clip(out)
+}

@@ -61,7 +61,7 @@ const auKm = 149597870.7
 
 // track is a body's geocentric path sampled at a fixed step.
 type track struct {
-	start, step float64   // Unix seconds of sample 0, spacing in seconds
+	start, step  float64   // Unix seconds of sample 0, spacing in seconds
 	g, dec, dist []float64 // smooth GHA part (rad, unwrapped), declination (rad), distance (Earth radii)
 	leaps        []float64 // leap-second instants within the track (Unix s)
 	leap0        float64   // leap seconds since 1972 at start

@@ -34,16 +34,23 @@ func elpSum(s *[4][]elpTerm, t, t2, t3, t4 float64) float64 {
 // from J2000 (with the DE405 fit's correction to its first coefficient, from
 // the ELP/MPP02 documentation).
 func elpEval(jde float64, l, b, r *[4][]elpTerm) (lon, lat, dist float64) {
-	t := (jde - 2451545.0) / 36525
-	t2 := t * t
-	t3 := t2 * t
-	t4 := t3 * t
-	w1 := elpW1[0] + t*(elpW1[1]+t*(elpW1[2]+t*(elpW1[3]+t*elpW1[4])))
-	pA := (5029.0966-0.29965)*t + 1.1120*t2 + 0.000077*t3 - 0.00002353*t4
-	lon = w1 + (elpSum(l, t, t2, t3, t4)+pA)*arcsec2rad
+	t, t2, t3, t4, base := elpTime(jde)
+	lon = base + elpSum(l, t, t2, t3, t4)*arcsec2rad
 	lat = elpSum(b, t, t2, t3, t4) * arcsec2rad
 	dist = elpSum(r, t, t2, t3, t4)
 	return lon, lat, dist
+}
+
+// elpTime returns the powers of T (Julian centuries of TT from J2000.0) at
+// jde and the longitude's polynomial part W1 + pA, radians.
+func elpTime(jde float64) (t, t2, t3, t4, base float64) {
+	t = (jde - J2000) / julianCentury
+	t2 = t * t
+	t3 = t2 * t
+	t4 = t3 * t
+	w1 := elpW1[0] + t*(elpW1[1]+t*(elpW1[2]+t*(elpW1[3]+t*elpW1[4])))
+	pA := (5029.0966-0.29965)*t + 1.1120*t2 + 0.000077*t3 - 0.00002353*t4
+	return t, t2, t3, t4, w1 + pA*arcsec2rad
 }
 
 // elpMoon returns the Moon's geometric geocentric ecliptic longitude and
@@ -54,4 +61,12 @@ func elpEval(jde float64, l, b, r *[4][]elpTerm) (lon, lat, dist float64) {
 // latitude, ≤ 0.3 km in distance).
 func elpMoon(jde float64) (lon, lat, dist float64) {
 	return elpEval(jde, &elpL, &elpB, &elpR)
+}
+
+// elpLongitudeDistance returns only the longitude (radians, mean ecliptic and
+// equinox of date, not reduced) and the distance (km) at jde (TT), skipping
+// the latitude series; used where the latitude is not needed (phases).
+func elpLongitudeDistance(jde float64) (lon, dist float64) {
+	t, t2, t3, t4, base := elpTime(jde)
+	return base + elpSum(&elpL, t, t2, t3, t4)*arcsec2rad, elpSum(&elpR, t, t2, t3, t4)
 }

@@ -1,0 +1,263 @@
+package astro
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"slices"
+	"time"
+)
+
+// Moonrise, moonset and the Moon's meridian transit for any site.
+//
+// Definitions (USNO; common practice): moonrise and moonset are the instants
+// when the Moon's upper limb is on the horizon, with the standard refraction
+// of 34′ at the horizon, for the topocentric Moon (its horizontal parallax,
+// about 57′, is what makes it rise up to ~4 minutes later than a geocentric
+// Moon would). The geometric altitude of the topocentric centre is then
+//
+//	h₀ = −34′ − s′ − dip      (flat or sea horizon; dip = 1.76′·√height m)
+//	h₀ = Horizon − R(Horizon) − s′  (a skyline at apparent altitude Horizon)
+//
+// with s′ the topocentric semidiameter asin(1737.4 km / Δ′), Δ′ the distance
+// from the observer — the same rule as the Sun's Observer.RiseSetAltitude,
+// with the Moon's semidiameter in place of the Sun's 16′. Because s′ changes
+// (14.7′–16.8′ over a month), each crossing is solved with s′ at the middle
+// of its bracket and solved again with s′ at the first solution.
+//
+// The geocentric apparent Moon (moon.go) does not depend on the site: a
+// MoonEphemeris samples it every 6 hours and interpolates with the generic
+// body track of horizon.go (cubic Lagrange; error below 0.2″, measured in
+// TestMoonEphemerisInterpolation), so every site shares one set of
+// evaluations and only the parallax and the altitude are per site. The
+// crossing search is the Sun's (horizon.go): crossings between consecutive
+// extrema of the topocentric altitude, so a date can hold no moonrise (once
+// a month, since the Moon rises about 50 minutes later each day), two, or
+// none at all when the Moon stays up or down (high latitudes), and never an
+// invented or duplicated event.
+
+// moonTrackStep is the sampling step of the Moon's track, seconds.
+const moonTrackStep = 6 * 3600.0
+
+// MoonEphemeris holds the Moon's apparent geocentric track (and the Sun's,
+// for illumination and dark-sky windows) over a span; it serves any number
+// of observers. It is immutable and safe for concurrent use.
+type MoonEphemeris struct {
+	from, to time.Time // queries allowed in [from, to]
+	moon     *track
+	sun      *Ephemeris
+}
+
+// NewMoonEphemeris builds the Moon's track (and a Sun Ephemeris) for queries
+// within [from − 2 days, to + 2 days]. from and to must lie within
+// MinTime..MaxTime (else a *RangeError) and from must not be after to. Cost:
+// four lunar positions (about 60 µs each) per day of span.
+func NewMoonEphemeris(from, to time.Time) (*MoonEphemeris, error) {
+	sun, err := NewEphemeris(from, to)
+	if err != nil {
+		return nil, err
+	}
+	qa, qb := sun.Coverage()
+	start := math.Floor(unixSeconds(from)/secondsPerDay)*secondsPerDay - 4*secondsPerDay
+	n := int(math.Ceil((unixSeconds(to)-start)/moonTrackStep)) + int(4*secondsPerDay/moonTrackStep) + 1
+	tr := newTrack(start, moonTrackStep, n, func(e Epoch) (ra, dec, dist float64) {
+		s := moonApparent(e.JDE)
+		return s.ra, s.dec, s.dist / earthRadiusKm
+	})
+	return &MoonEphemeris{from: qa, to: qb, moon: tr, sun: sun}, nil
+}
+
+// Coverage returns the span in which the ephemeris answers queries.
+func (e *MoonEphemeris) Coverage() (from, to time.Time) { return e.from, e.to }
+
+// Sun returns the Sun's ephemeris over the same span, built with the Moon's.
+func (e *MoonEphemeris) Sun() *Ephemeris { return e.sun }
+
+func (e *MoonEphemeris) checkSpan(from, to time.Time) error {
+	for _, t := range [2]time.Time{from, to} {
+		if t.Before(e.from) || t.After(e.to) {
+			return &RangeError{What: "time", Value: t.UTC().Format(time.RFC3339), Min: e.from.Format(time.RFC3339), Max: e.to.Format(time.RFC3339)}
+		}
+	}
+	return nil
+}
+
+// moonRiseSetAltitude returns h₀ (radians) for the topocentric semidiameter
+// sd (radians): the Sun's rise/set altitude for this observer with the Sun's
+// 16′ replaced by sd (see the top of this file).
+func moonRiseSetAltitude(o Observer, sd float64) float64 {
+	return (o.RiseSetAltitude()+16.0/60)*deg2rad - sd
+}
+
+// topoDistance returns the distance (Earth radii) from the site to a body at
+// local hour angle H, declination dec and geocentric distance dist (Earth
+// radii), with the geometry of site.sinAltitudeFrom.
+func (st *site) topoDistance(H, dec, dist float64) float64 {
+	sH, cH := math.Sincos(H)
+	sd, cd := math.Sincos(dec)
+	x := dist*cd*cH - st.rhoCos
+	y := dist * cd * sH
+	z := dist*sd - st.rhoSin
+	return math.Sqrt(x*x + y*y + z*z)
+}
+
+// moonSemidiameter returns the Moon's topocentric semidiameter (radians) at
+// Unix second sec.
+func (e *MoonEphemeris) moonSemidiameter(st *site, sec float64) float64 {
+	k, w := e.moon.weights(sec)
+	H := e.moon.ghaFrom(sec, k, &w) + st.lon
+	d := st.topoDistance(H, interp(e.moon.dec, k, &w), interp(e.moon.dist, k, &w))
+	return math.Asin(moonRadiusKm / (d * earthRadiusKm))
+}
+
+// moonCrossings returns the Moon's rise/set crossings (upper limb, as at the
+// top of this file) in [a, b), using the extrema ext.
+func (e *MoonEphemeris) moonCrossings(o Observer, st *site, ext []extremum, a, b float64) []crossing {
+	var out, buf []crossing
+	for i := 0; i+1 < len(ext); i++ {
+		if ext[i+1].t < a || ext[i].t >= b {
+			continue
+		}
+		pair := ext[i : i+2]
+		mid := 0.5 * (pair[0].t + pair[1].t)
+		sd := e.moonSemidiameter(st, mid)
+		buf = e.moon.crossings(st, pair, math.Sin(moonRiseSetAltitude(o, sd)), a, b, buf[:0])
+		if len(buf) == 1 {
+			// Solve again with the semidiameter at the crossing. The
+			// threshold moves by at most a few arcseconds, so the crossing
+			// stays in this bracket unless it sits at an extremum.
+			sd2 := e.moonSemidiameter(st, buf[0].t)
+			buf = e.moon.crossings(st, pair, math.Sin(moonRiseSetAltitude(o, sd2)), a, b, buf[:0])
+		}
+		out = append(out, buf...)
+	}
+	return out
+}
+
+// MoonRiseSet returns every moonrise (Direction Rising) and moonset
+// (Setting) for the observer in [from, to), sorted: the upper limb on the
+// horizon with 34′ of refraction and the observer's dip or skyline, for the
+// topocentric Moon (see moonrise.go). The span must lie within Coverage()
+// (else a *RangeError); an invalid observer gives an *InputError.
+func (e *MoonEphemeris) MoonRiseSet(o Observer, from, to time.Time) ([]Crossing, error) {
+	if err := o.Validate(); err != nil {
+		return nil, err
+	}
+	if err := e.checkSpan(from, to); err != nil {
+		return nil, err
+	}
+	st := newSite(o)
+	a, b := unixSeconds(from), unixSeconds(to)
+	cs := e.moonCrossings(o, st, e.moon.extrema(st, a, b), a, b)
+	out := make([]Crossing, 0, len(cs))
+	for _, c := range cs {
+		t := timeFromUnix(c.t)
+		if t.Before(from) || !t.Before(to) {
+			continue
+		}
+		d := Setting
+		if c.rising {
+			d = Rising
+		}
+		out = append(out, Crossing{Time: t, Direction: d})
+	}
+	return out, nil
+}
+
+// MoonTransits returns the Moon's upper meridian transits (local hour angle
+// 0 of the apparent right ascension; the parallax in right ascension is zero
+// on the meridian, so geocentric and topocentric transits coincide) in
+// [from, to), with the topocentric geometric altitude of the centre. A date has no transit about
+// once a month (the Moon transits about 50 minutes later each day).
+func (e *MoonEphemeris) MoonTransits(o Observer, from, to time.Time) ([]Transit, error) {
+	if err := o.Validate(); err != nil {
+		return nil, err
+	}
+	if err := e.checkSpan(from, to); err != nil {
+		return nil, err
+	}
+	st := newSite(o)
+	ts := e.moon.transits(st, unixSeconds(from), unixSeconds(to))
+	out := make([]Transit, 0, len(ts))
+	for _, s := range ts {
+		t := timeFromUnix(s)
+		if t.Before(from) || !t.Before(to) {
+			continue
+		}
+		out = append(out, Transit{Time: t, Altitude: math.Asin(e.moon.sinAltitude(st, s)) * rad2deg})
+	}
+	return out, nil
+}
+
+// MoonAltitude returns the topocentric geometric altitude of the Moon's
+// centre (degrees, no refraction) at t.
+func (e *MoonEphemeris) MoonAltitude(o Observer, t time.Time) (float64, error) {
+	if err := o.Validate(); err != nil {
+		return 0, err
+	}
+	if err := e.checkSpan(t, t); err != nil {
+		return 0, err
+	}
+	return math.Asin(e.moon.sinAltitude(newSite(o), unixSeconds(t))) * rad2deg, nil
+}
+
+// moonUp reports whether the Moon's upper limb is above the (refracted)
+// horizon at Unix second sec, by the rise/set rule.
+func (e *MoonEphemeris) moonUp(o Observer, st *site, sec float64) bool {
+	h0 := moonRiseSetAltitude(o, e.moonSemidiameter(st, sec))
+	return e.moon.sinAltitude(st, sec) > math.Sin(h0)
+}
+
+// MoonDays returns one Day per local date from first to last inclusive
+// (dates read in loc; the clock part of first and last is ignored), with
+// the moonrises (Rising) and moonsets (Setting) within each date, from its
+// local midnight to the next. A date commonly has no moonrise or no moonset
+// (about once a month each): then that list is empty and State is still
+// Crosses. State is AlwaysAbove or AlwaysBelow only when the date has
+// neither: the Moon stays up (or down) the whole date. The dates must lie
+// within Coverage().
+func (e *MoonEphemeris) MoonDays(o Observer, loc *time.Location, first, last time.Time) ([]Day, error) {
+	if loc == nil {
+		return nil, errors.New("astro: MoonDays: nil location")
+	}
+	if err := o.Validate(); err != nil {
+		return nil, err
+	}
+	y, m, d := first.In(loc).Date()
+	start := time.Date(y, m, d, 0, 0, 0, 0, loc)
+	y, m, d = last.In(loc).Date()
+	stop := time.Date(y, m, d+1, 0, 0, 0, 0, loc)
+	if !start.Before(stop) {
+		return nil, fmt.Errorf("astro: MoonDays: last date %s is before the first %s", last.In(loc).Format(time.DateOnly), first.In(loc).Format(time.DateOnly))
+	}
+	cs, err := e.MoonRiseSet(o, start, stop)
+	if err != nil {
+		return nil, err
+	}
+	st := newSite(o)
+	var days []Day
+	i := 0
+	for day := start; day.Before(stop); {
+		y, m, d := day.Date()
+		next := time.Date(y, m, d+1, 0, 0, 0, 0, loc)
+		dd := Day{Date: day}
+		for ; i < len(cs) && cs[i].Time.Before(next); i++ {
+			if cs[i].Direction == Rising {
+				dd.Rising = append(dd.Rising, cs[i].Time)
+			} else {
+				dd.Setting = append(dd.Setting, cs[i].Time)
+			}
+		}
+		if len(dd.Rising)+len(dd.Setting) == 0 {
+			mid := 0.5 * (unixSeconds(day) + unixSeconds(next))
+			if e.moonUp(o, st, mid) {
+				dd.State = AlwaysAbove
+			} else {
+				dd.State = AlwaysBelow
+			}
+		}
+		days = append(days, dd)
+		day = next
+	}
+	return slices.Clip(days), nil
+}

@@ -1,0 +1,200 @@
+package main
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"strings"
+	"time"
+
+	"heliocal/astro"
+	"heliocal/config"
+	"heliocal/feed"
+	"heliocal/feed/ical"
+	"heliocal/feed/publish"
+	"heliocal/feed/schedule"
+	"heliocal/feed/serve"
+)
+
+// layout is where feeds live below the public base URL: publish writes
+// "<id>.ics" beside index.html, serve answers "/feeds/<id>.ics".
+type layout struct {
+	base     string // public base URL ending in "/", or ""
+	feedPath string // "" for publish, "feeds/" for serve
+}
+
+func (l layout) feedURL(id string) string {
+	if l.base == "" {
+		return ""
+	}
+	return l.base + l.feedPath + id + ".ics"
+}
+
+func newLayout(baseURL, feedPath string) layout {
+	if baseURL != "" && !strings.HasSuffix(baseURL, "/") {
+		baseURL += "/"
+	}
+	return layout{base: baseURL, feedPath: feedPath}
+}
+
+// refreshInterval is the time between two scheduled refreshes, written into
+// the feeds as REFRESH-INTERVAL; a day when it cannot be worked out.
+func refreshInterval(cfg *config.Config, now time.Time) time.Duration {
+	loc := cfg.Service.RefreshZone.Location
+	if loc == nil {
+		loc = time.Local
+	}
+	d, err := schedule.Interval(cfg.Service.Refresh, loc, now)
+	if err != nil || d <= 0 {
+		return 24 * time.Hour
+	}
+	return d
+}
+
+// build prepares everything a publish or a refresh renders: the sources of
+// every feed (computed lazily, one at a time) and the render options.
+func build(cfg *config.Config, now time.Time, l layout) ([]publish.Source, publish.RenderOptions, error) {
+	cat, err := feed.NewCatalogue(cfg, feed.Options{
+		Now:     now,
+		FeedURL: l.feedURL,
+		PageURL: l.base,
+		Refresh: refreshInterval(cfg, now),
+	})
+	if err != nil {
+		return nil, publish.RenderOptions{}, err
+	}
+	srcs := make([]publish.Source, len(cfg.Feeds))
+	for i := range cfg.Feeds {
+		f := &cfg.Feeds[i]
+		srcs[i] = publish.Source{ID: f.ID, Build: func(context.Context) (*feed.Calendar, error) { return cat.Calendar(f) }}
+	}
+	opts := publish.RenderOptions{
+		Version:      versionString(),
+		Generated:    time.Date(now.Year(), now.Month(), now.Day(), 0, 0, 0, 0, time.UTC),
+		Charts:       chartsFor(cfg, now),
+		MaxFeedBytes: cfg.Service.MaxFeedBytes,
+	}
+	if l.feedPath == "" {
+		opts.BaseURL = l.base
+	}
+	return srcs, opts, nil
+}
+
+// chartsFor draws, for each site, the year ahead: day length and twilight
+// bands, the year's events of the site's feeds as marks, and its
+// photoperiod thresholds as levels.
+func chartsFor(cfg *config.Config, now time.Time) func(context.Context, feed.Site) (*publish.SiteChart, error) {
+	return func(_ context.Context, fs feed.Site) (*publish.SiteChart, error) {
+		var site *config.Site
+		for i := range cfg.Sites {
+			if cfg.Sites[i].ID == fs.ID {
+				site = &cfg.Sites[i]
+			}
+		}
+		if site == nil {
+			return nil, fmt.Errorf("chart: no site %q", fs.ID)
+		}
+		loc := site.TimeZone.Location
+		t := now.In(loc)
+		first := time.Date(t.Year(), t.Month(), t.Day(), 0, 0, 0, 0, time.UTC)
+		last := first.AddDate(1, 0, -1)
+		sky, err := feed.NewSky(first, last)
+		if err != nil {
+			return nil, err
+		}
+		place := feed.PlaceOf(site)
+		profiles, err := sky.Profiles(place, first, last)
+		if err != nil {
+			return nil, err
+		}
+		chart := &publish.SiteChart{}
+		for _, p := range profiles {
+			chart.Days = append(chart.Days, publish.ChartDay{Date: p.Date, Daylight: p.Daylight,
+				Civil: p.Civil, Nautical: p.Nautical, Astronomical: p.Astronomical})
+		}
+		var marks []config.Kind
+		seen := map[string]bool{}
+		for _, f := range cfg.Feeds {
+			if f.Site != site.ID {
+				continue
+			}
+			for _, ks := range f.Kinds {
+				k := ks.Kind
+				switch {
+				case k.Name == "photoperiod" && !seen[k.String()]:
+					chart.Levels = append(chart.Levels, publish.Level{Length: k.DayLength, Label: k.DayLength.String()})
+				case k.IsYearly() && !k.IsMoon() && !seen[k.String()]:
+					marks = append(marks, k)
+				}
+				seen[k.String()] = true
+			}
+		}
+		if len(marks) > 0 {
+			events, _, err := sky.Events(place, marks, first, last)
+			if err != nil {
+				return nil, err
+			}
+			for _, e := range events {
+				chart.Marks = append(chart.Marks, publish.Mark{At: e.Start, Label: markLabel(e)})
+			}
+		}
+		return chart, nil
+	}
+}
+
+func markLabel(e feed.Event) string {
+	switch e.Kind.Name {
+	case "march-equinox":
+		return "Mar equinox"
+	case "june-solstice":
+		return "Jun solstice"
+	case "september-equinox":
+		return "Sep equinox"
+	case "december-solstice":
+		return "Dec solstice"
+	case "cross-quarter":
+		return "cross-quarter " + e.Part + "°"
+	}
+	return e.Kind.Name
+}
+
+// adhocFeed renders the ad-hoc feed of a validated query.
+func adhocFeed(l layout, refresh time.Duration) serve.AdhocFunc {
+	return func(_ context.Context, q serve.AdhocQuery) ([]byte, error) {
+		first := q.Start
+		last := first.AddDate(0, 0, q.Days-1)
+		site := &config.Site{
+			ID:        q.ID(),
+			Name:      fmt.Sprintf("%.4f, %.4f", q.Latitude, q.Longitude),
+			Latitude:  q.Latitude,
+			Longitude: q.Longitude,
+			Elevation: q.Elevation,
+			TimeZone:  config.Zone{Location: q.Location},
+		}
+		f := &config.Feed{ID: q.ID(), Title: "Sky events at " + site.Name, Site: site.ID, UTC: q.UTC,
+			Description: "Sun and Moon events computed by heliocal for " + site.Name + "."}
+		for _, name := range q.Kinds {
+			k, err := config.ParseKind(name)
+			if err != nil {
+				return nil, &serve.QueryError{Param: serve.ParamKinds, Value: name, Msg: err.Error()}
+			}
+			f.Kinds = append(f.Kinds, config.KindSpec{Kind: k})
+		}
+		sky, err := feed.NewSky(first, last)
+		if err != nil {
+			if errors.Is(err, astro.ErrOutOfRange) {
+				return nil, &serve.QueryError{Param: serve.ParamStart, Value: first.Format(time.DateOnly), Msg: err.Error()}
+			}
+			return nil, err
+		}
+		cal, err := sky.Calendar(site, f, first, last, feed.Options{PageURL: l.base, Refresh: refresh})
+		if err != nil {
+			return nil, err
+		}
+		if l.base != "" {
+			cal.URL = l.base + strings.TrimPrefix(serve.AdhocPath, "/") + "?" + q.String()
+		}
+		return ical.Marshal(cal, ical.Options{Version: versionString()})
+	}
+}
+

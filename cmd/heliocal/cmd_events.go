@@ -1,0 +1,391 @@
+package main
+
+import (
+	"context"
+	"encoding/csv"
+	"encoding/json"
+	"fmt"
+	"io"
+	"math"
+	"sort"
+	"strings"
+	"text/tabwriter"
+	"time"
+
+	"github.com/spf13/cobra"
+
+	"heliocal/astro"
+	"heliocal/config"
+	"heliocal/feed"
+)
+
+const defaultKinds = "sunrise,sunset,solar-noon,civil-dawn,civil-dusk"
+
+type eventsOptions struct {
+	site      string
+	lat, lon  float64
+	elev      float64
+	horizon   float64
+	tz        string
+	from, to  string
+	kinds     string
+	format    string
+	placeFlag bool // --lat/--lon given
+	now       time.Time
+}
+
+func newEventsCommand(g *globals) *cobra.Command {
+	o := &eventsOptions{}
+	cmd := &cobra.Command{
+		Use:   "events",
+		Short: "List the events of chosen kinds for a site or any place",
+		Long: `List the events of chosen kinds for a configured site (--site) or for any place
+(--lat, --lon, --tz, optionally --elev and --horizon), for the local dates --from..--to
+(inclusive, in the place's time zone).
+
+Kinds (comma-separated): ` + strings.Join(config.KindNames, ", ") + `
+Parametrised kinds: sun-altitude:<degrees> (e.g. sun-altitude:-3), photoperiod:<duration>
+(e.g. photoperiod:12h30m).
+
+Formats: table (local times, readable), json (UTC instants, RFC 3339 with milliseconds),
+csv (both).` + exitStatusHelp,
+		Example: `  heliocal events --lat 48.2 --lon 16.4 --elev 180 --tz Europe/Vienna --from 2027-01-01 --to 2027-01-07
+  heliocal events --site ridge-observatory --kinds dark-window,moon-phases --format json`,
+		Args: cobra.NoArgs,
+		RunE: func(cmd *cobra.Command, _ []string) error {
+			o.placeFlag = cmd.Flags().Changed("lat") || cmd.Flags().Changed("lon")
+			o.now = time.Now()
+			return runEvents(cmd.Context(), g, o)
+		},
+	}
+	f := cmd.Flags()
+	f.StringVar(&o.site, "site", "", "id of a configured site")
+	f.Float64Var(&o.lat, "lat", 0, "latitude in degrees, north positive (−90..90)")
+	f.Float64Var(&o.lon, "lon", 0, "longitude in degrees, east positive (−180..180)")
+	f.Float64Var(&o.elev, "elev", 0, "elevation in metres above sea level")
+	f.Float64Var(&o.horizon, "horizon", 0, "altitude of the visible horizon in degrees (hills)")
+	f.StringVar(&o.tz, "tz", "", "IANA time zone of the place, e.g. Europe/Vienna (default UTC)")
+	f.StringVar(&o.from, "from", "", "first local date, YYYY-MM-DD (default today)")
+	f.StringVar(&o.to, "to", "", "last local date, YYYY-MM-DD, inclusive (default from + 6 days)")
+	f.StringVar(&o.kinds, "kinds", defaultKinds, "comma-separated event kinds")
+	f.StringVarP(&o.format, "format", "f", "table", "output format: table, json or csv")
+	_ = cmd.RegisterFlagCompletionFunc("format", cobra.FixedCompletions([]string{"table", "json", "csv"}, cobra.ShellCompDirectiveNoFileComp))
+	_ = cmd.RegisterFlagCompletionFunc("kinds", cobra.FixedCompletions(config.KindNames, cobra.ShellCompDirectiveNoFileComp|cobra.ShellCompDirectiveNoSpace))
+	return cmd
+}
+
+// eventsPlace resolves the site the events are computed for.
+func eventsPlace(g *globals, o *eventsOptions) (*config.Site, error) {
+	if o.site != "" {
+		if o.placeFlag || o.tz != "" {
+			return nil, badInput("--site %q: give either --site or --lat/--lon/--tz, not both", o.site)
+		}
+		cfg, _, err := loadConfig(g)
+		if err != nil {
+			return nil, err
+		}
+		for i := range cfg.Sites {
+			if cfg.Sites[i].ID == o.site {
+				return &cfg.Sites[i], nil
+			}
+		}
+		ids := make([]string, len(cfg.Sites))
+		for i, s := range cfg.Sites {
+			ids[i] = s.ID
+		}
+		return nil, badInput("--site: %q: no such site (configured: %s)", o.site, strings.Join(ids, ", "))
+	}
+	if !o.placeFlag {
+		return nil, badInput("give a place: --site ID, or --lat and --lon (with --tz)")
+	}
+	s := &config.Site{ID: "place", Latitude: o.lat, Longitude: o.lon, Elevation: o.elev, Horizon: o.horizon}
+	switch {
+	case math.IsNaN(o.lat) || o.lat < -90 || o.lat > 90:
+		return nil, badInput("--lat: %v: must be within -90..90 degrees", o.lat)
+	case math.IsNaN(o.lon) || o.lon < -180 || o.lon > 180:
+		return nil, badInput("--lon: %v: must be within -180..180 degrees (east positive)", o.lon)
+	case math.IsNaN(o.elev) || o.elev < -500 || o.elev > 9000:
+		return nil, badInput("--elev: %v: must be within -500..9000 metres", o.elev)
+	case math.IsNaN(o.horizon) || o.horizon < -5 || o.horizon > 45:
+		return nil, badInput("--horizon: %v: must be within -5..45 degrees", o.horizon)
+	}
+	tz := o.tz
+	if tz == "" {
+		tz = "UTC"
+	}
+	if err := s.TimeZone.UnmarshalText([]byte(tz)); err != nil {
+		return nil, badInput("--tz: %w", err)
+	}
+	s.Name = fmt.Sprintf("%.4f, %.4f", o.lat, o.lon)
+	return s, nil
+}
+
+func parseDate(flag, v string, loc *time.Location) (time.Time, error) {
+	d, err := time.ParseInLocation(time.DateOnly, v, loc)
+	if err != nil {
+		return time.Time{}, badInput("%s: %q: not a date, use YYYY-MM-DD", flag, v)
+	}
+	return time.Date(d.Year(), d.Month(), d.Day(), 0, 0, 0, 0, time.UTC), nil
+}
+
+func parseKinds(list string) ([]config.Kind, error) {
+	var kinds []config.Kind
+	for _, name := range strings.Split(list, ",") {
+		name = strings.TrimSpace(name)
+		if name == "" {
+			continue
+		}
+		k, err := config.ParseKind(name)
+		if err != nil {
+			return nil, badInput("--kinds: %w", err)
+		}
+		if k.Name == "daily-summary" {
+			return nil, badInput("--kinds: %q: a feed entry, not an event; use the sunrise, sunset and twilight kinds", name)
+		}
+		kinds = append(kinds, k)
+	}
+	if len(kinds) == 0 {
+		return nil, badInput("--kinds: %q: give at least one kind", list)
+	}
+	return kinds, nil
+}
+
+func runEvents(_ context.Context, g *globals, o *eventsOptions) error {
+	site, err := eventsPlace(g, o)
+	if err != nil {
+		return err
+	}
+	loc := site.TimeZone.Location
+	today := o.now.In(loc)
+	from := time.Date(today.Year(), today.Month(), today.Day(), 0, 0, 0, 0, time.UTC)
+	if o.from != "" {
+		if from, err = parseDate("--from", o.from, loc); err != nil {
+			return err
+		}
+	}
+	to := from.AddDate(0, 0, 6)
+	if o.to != "" {
+		if to, err = parseDate("--to", o.to, loc); err != nil {
+			return err
+		}
+	}
+	if to.Before(from) {
+		return badInput("--to: %s is before --from %s", to.Format(time.DateOnly), from.Format(time.DateOnly))
+	}
+	if to.Sub(from) > 10*366*24*time.Hour {
+		return badInput("--to: %s: at most 10 years after --from", to.Format(time.DateOnly))
+	}
+	kinds, err := parseKinds(o.kinds)
+	if err != nil {
+		return err
+	}
+	sky, err := feed.NewSky(from, to)
+	if err != nil {
+		return inputError{err}
+	}
+	events, notes, err := sky.Events(feed.PlaceOf(site), kinds, from, to)
+	if err != nil {
+		return err
+	}
+	switch o.format {
+	case "json":
+		return writeEventsJSON(g.stdout, site, from, to, events, notes)
+	case "csv":
+		return writeEventsCSV(g.stdout, site, events, notes)
+	case "table":
+		return writeEventsTable(g.stdout, site, events, notes)
+	}
+	return badInput("--format: %q: use table, json or csv", o.format)
+}
+
+const jsonTime = "2006-01-02T15:04:05.000Z07:00"
+
+type jsonEvent struct {
+	Kind      string   `json:"kind"`
+	Start     string   `json:"start"`
+	End       string   `json:"end,omitempty"`
+	Direction string   `json:"direction,omitempty"`
+	Date      string   `json:"date"`
+	Part      string   `json:"part,omitempty"`
+	Altitude  *float64 `json:"altitude_deg,omitempty"`
+	Distance  *float64 `json:"distance_au,omitempty"`
+	DayLength *float64 `json:"day_length_s,omitempty"`
+	Lit       *float64 `json:"illuminated,omitempty"`
+}
+
+type jsonNote struct {
+	Kind  string `json:"kind"`
+	Date  string `json:"date"`
+	State string `json:"state"`
+}
+
+type jsonSite struct {
+	Name      string  `json:"name"`
+	Latitude  float64 `json:"latitude"`
+	Longitude float64 `json:"longitude"`
+	Elevation float64 `json:"elevation_m"`
+	Horizon   float64 `json:"horizon_deg"`
+	TimeZone  string  `json:"timezone"`
+	From      string  `json:"from"`
+	To        string  `json:"to"`
+}
+
+func toJSONEvent(e feed.Event) jsonEvent {
+	j := jsonEvent{
+		Kind:      e.Kind.String(),
+		Start:     e.Start.UTC().Format(jsonTime),
+		Direction: dirName(e.Direction),
+		Date:      e.Date.Format(time.DateOnly),
+		Part:      e.Part,
+	}
+	if !e.End.IsZero() {
+		j.End = e.End.UTC().Format(jsonTime)
+	}
+	switch e.Kind.Name {
+	case "solar-noon", "moon-transit":
+		a := math.Round(e.Altitude*1e4) / 1e4
+		j.Altitude = &a
+	case "perihelion", "aphelion":
+		r := e.Distance
+		j.Distance = &r
+	case "photoperiod", "sunrise", "sunset":
+		s := e.DayLength.Seconds()
+		j.DayLength = &s
+	}
+	if strings.Contains(e.Kind.Name, "moon") || e.Kind.Name == "first-quarter" || e.Kind.Name == "last-quarter" {
+		f := math.Round(e.Illuminated*1e4) / 1e4
+		j.Lit = &f
+	}
+	return j
+}
+
+func dirName(d astro.Direction) string {
+	if d == 0 {
+		return ""
+	}
+	return d.String()
+}
+
+func writeEventsJSON(w io.Writer, s *config.Site, from, to time.Time, events []feed.Event, notes []feed.Note) error {
+	out := struct {
+		Events []jsonEvent `json:"events"`
+		Notes  []jsonNote  `json:"notes"`
+		Site   jsonSite    `json:"site"`
+	}{Events: []jsonEvent{}, Notes: []jsonNote{}}
+	for _, e := range events {
+		out.Events = append(out.Events, toJSONEvent(e))
+	}
+	for _, n := range notes {
+		out.Notes = append(out.Notes, jsonNote{Kind: n.Kind.String(), Date: n.Date.Format(time.DateOnly), State: n.State.String()})
+	}
+	out.Site = jsonSite{Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation,
+		Horizon: s.Horizon, TimeZone: s.TimeZone.String(), From: from.Format(time.DateOnly), To: to.Format(time.DateOnly)}
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	return enc.Encode(out)
+}
+
+func writeEventsCSV(w io.Writer, s *config.Site, events []feed.Event, notes []feed.Note) error {
+	loc := s.TimeZone.Location
+	cw := csv.NewWriter(w)
+	_ = cw.Write([]string{"date", "kind", "start_utc", "end_utc", "direction", "start_local", "end_local", "state"})
+	for _, r := range mergeRows(events, notes) {
+		if r.note != nil {
+			_ = cw.Write([]string{r.note.Date.Format(time.DateOnly), r.note.Kind.String(), "", "", "", "", "", r.note.State.String()})
+			continue
+		}
+		e := r.event
+		end, endLocal := "", ""
+		if !e.End.IsZero() {
+			end, endLocal = e.End.UTC().Format(jsonTime), e.End.In(loc).Format(time.RFC3339)
+		}
+		_ = cw.Write([]string{e.Date.Format(time.DateOnly), e.Kind.String(), e.Start.UTC().Format(jsonTime), end,
+			dirName(e.Direction), e.Start.In(loc).Format(time.RFC3339), endLocal, ""})
+	}
+	cw.Flush()
+	return cw.Error()
+}
+
+type row struct {
+	date  time.Time
+	at    time.Time
+	event *feed.Event
+	note  *feed.Note
+}
+
+// mergeRows interleaves events and notes by local date, notes first.
+func mergeRows(events []feed.Event, notes []feed.Note) []row {
+	rows := make([]row, 0, len(events)+len(notes))
+	for i := range events {
+		rows = append(rows, row{date: events[i].Date, at: events[i].Start, event: &events[i]})
+	}
+	for i := range notes {
+		rows = append(rows, row{date: notes[i].Date, note: &notes[i]})
+	}
+	sort.SliceStable(rows, func(i, j int) bool {
+		if !rows[i].date.Equal(rows[j].date) {
+			return rows[i].date.Before(rows[j].date)
+		}
+		return rows[i].at.Before(rows[j].at)
+	})
+	return rows
+}
+
+func writeEventsTable(w io.Writer, s *config.Site, events []feed.Event, notes []feed.Note) error {
+	loc := s.TimeZone.Location
+	ns, ew := 'N', 'E'
+	lat, lon := s.Latitude, s.Longitude
+	if lat < 0 {
+		ns, lat = 'S', -lat
+	}
+	if lon < 0 {
+		ew, lon = 'W', -lon
+	}
+	fmt.Fprintf(w, "%s: %.4f° %c, %.4f° %c, %g m, %s\n\n", s.Name, lat, ns, lon, ew, s.Elevation, loc)
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	fmt.Fprintln(tw, "DATE\tTIME\tKIND\tDETAILS")
+	for _, r := range mergeRows(events, notes) {
+		if r.note != nil {
+			fmt.Fprintf(tw, "%s\t%s\t%s\t%s\n", r.note.Date.Format("2006-01-02 Mon"), "-", r.note.Kind, stateText(r.note.State))
+			continue
+		}
+		e := r.event
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\n", e.Date.Format("2006-01-02 Mon"), e.Start.In(loc).Format("15:04:05 MST"), e.Kind, details(e, loc))
+	}
+	return tw.Flush()
+}
+
+func stateText(s astro.State) string {
+	switch s {
+	case astro.AlwaysAbove:
+		return "no event: stays above all day"
+	case astro.AlwaysBelow:
+		return "no event: stays below all day"
+	}
+	return s.String()
+}
+
+func details(e *feed.Event, loc *time.Location) string {
+	var parts []string
+	if !e.End.IsZero() {
+		parts = append(parts, fmt.Sprintf("until %s (%s)", e.End.In(loc).Format("15:04:05"), e.End.Sub(e.Start).Round(time.Minute)))
+	}
+	if e.Part != "" {
+		parts = append(parts, e.Part)
+	}
+	if e.Direction != 0 && (e.Kind.Name == "sun-altitude" || e.Kind.Name == "photoperiod") {
+		parts = append(parts, dirName(e.Direction))
+	}
+	switch e.Kind.Name {
+	case "sunrise", "sunset", "photoperiod":
+		parts = append(parts, "day length "+e.DayLength.Round(time.Second).String())
+	case "solar-noon", "moon-transit":
+		parts = append(parts, fmt.Sprintf("altitude %.2f°", e.Altitude))
+	case "perihelion", "aphelion":
+		parts = append(parts, fmt.Sprintf("%.6f au", e.Distance))
+	}
+	if e.Illuminated > 0 {
+		parts = append(parts, fmt.Sprintf("%.0f%% lit", e.Illuminated*100))
+	}
+	return strings.Join(parts, ", ")
+}

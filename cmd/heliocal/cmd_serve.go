@@ -1,0 +1,122 @@
+package main
+
+import (
+	"context"
+	"log/slog"
+	"os"
+	"os/signal"
+	"syscall"
+	"time"
+
+	"github.com/spf13/cobra"
+
+	"heliocal/config"
+	"heliocal/feed/publish"
+	"heliocal/feed/serve"
+)
+
+type serveOptions struct {
+	listen    string
+	baseURL   string
+	logFormat string
+}
+
+func newServeCommand(g *globals) *cobra.Command {
+	o := &serveOptions{}
+	cmd := &cobra.Command{
+		Use:   "serve",
+		Short: "Serve the feeds over HTTP and refresh them on schedule",
+		Long: `Serve the configured feeds over HTTP: / (index page), /feeds/<id>.ics, /feeds.json,
+/healthz, /metrics and ad-hoc feeds for any place at /at.ics?lat=..&lon=..&tz=..&kinds=..&days=..
+The feeds are rebuilt on the configured schedule (service.refresh, nightly at 03:15 by default)
+and swapped in whole. SIGHUP reloads the configuration: an invalid one is refused and logged,
+and the old feeds keep being served. SIGTERM or SIGINT shut down gracefully.` + exitStatusHelp,
+		Example: `  heliocal serve
+  heliocal serve --config farm.yaml --listen 127.0.0.1:8080 --base-url https://sky.example.org/`,
+		Args: cobra.NoArgs,
+		RunE: func(cmd *cobra.Command, _ []string) error {
+			return runServe(cmd.Context(), g, o)
+		},
+	}
+	f := cmd.Flags()
+	f.StringVarP(&o.listen, "listen", "l", "", "address to listen on (default: service.listen, \":8080\")")
+	f.StringVar(&o.baseURL, "base-url", "", "public URL the server is reached at (default: service.base_url)")
+	f.StringVar(&o.logFormat, "log-format", "text", "log format on stderr: text or json")
+	return cmd
+}
+
+// serveBuild returns the function that renders every feed of cfg, counting
+// "today" afresh at each call.
+func serveBuild(cfg *config.Config, base string) serve.BuildFunc {
+	return func(ctx context.Context) (*publish.Bundle, error) {
+		srcs, opts, err := build(cfg, time.Now(), newLayout(base, "feeds/"))
+		if err != nil {
+			return nil, err
+		}
+		return publish.Render(ctx, srcs, opts)
+	}
+}
+
+func runServe(ctx context.Context, g *globals, o *serveOptions) error {
+	var handler slog.Handler
+	switch o.logFormat {
+	case "text":
+		handler = slog.NewTextHandler(g.stderr, nil)
+	case "json":
+		handler = slog.NewJSONHandler(g.stderr, nil)
+	default:
+		return badInput("--log-format: %q: use text or json", o.logFormat)
+	}
+	log := slog.New(handler)
+	cfg, src, err := loadConfig(g)
+	if err != nil {
+		return err
+	}
+	base := cfg.Service.BaseURL
+	if o.baseURL != "" {
+		base = o.baseURL
+	}
+	listen := cfg.Service.Listen
+	if o.listen != "" {
+		listen = o.listen
+	}
+	l := newLayout(base, "feeds/")
+	srv, err := serve.New(serve.Options{
+		Logger:            log,
+		Build:             serveBuild(cfg, base),
+		Adhoc:             adhocFeed(l, refreshInterval(cfg, time.Now())),
+		AdhocDefaultKinds: []string{"sunrise", "sunset", "civil-dawn", "civil-dusk"},
+		Schedule:          cfg.Service.Refresh,
+		ScheduleZone:      cfg.Service.RefreshZone.Location,
+	})
+	if err != nil {
+		return inputError{err}
+	}
+	log.Info("configuration loaded", "source", src.String(), "sites", len(cfg.Sites), "feeds", len(cfg.Feeds))
+
+	// SIGHUP reloads the configuration; the signal stays here so the serve
+	// package can be run by tests without signals.
+	hup := make(chan os.Signal, 1)
+	signal.Notify(hup, syscall.SIGHUP)
+	defer signal.Stop(hup)
+	go func() {
+		for {
+			select {
+			case <-ctx.Done():
+				return
+			case <-hup:
+				next, src, err := loadConfig(g)
+				if err != nil {
+					log.Error("reload refused: the new configuration is invalid; still serving the old feeds", "err", err)
+					continue
+				}
+				if err := srv.Reload(ctx, serveBuild(next, base)); err != nil {
+					log.Error("reload failed; still serving the old feeds", "err", err)
+					continue
+				}
+				log.Info("configuration reloaded", "source", src.String(), "sites", len(next.Sites), "feeds", len(next.Feeds))
+			}
+		}
+	}()
+	return srv.ListenAndRun(ctx, listen)
+}

@@ -1,0 +1,289 @@
+package feed
+
+import (
+	"crypto/sha256"
+	"encoding/hex"
+	"fmt"
+	"sort"
+	"strings"
+	"time"
+
+	"heliocal/astro"
+	"heliocal/config"
+)
+
+// Options control how the catalogue turns configured feeds into calendars.
+type Options struct {
+	// Now fixes "today": each feed's window is counted in days back and
+	// ahead from Now's date in the feed site's zone.
+	Now time.Time
+	// FeedURL returns the public URL of a feed's .ics file, or "" when the
+	// feeds have no known public address.
+	FeedURL func(feedID string) string
+	// PageURL is the public address of the page listing the feeds, may be "".
+	PageURL string
+	// Refresh is the suggested polling interval written into each calendar.
+	Refresh time.Duration
+}
+
+// Catalogue builds the calendars of one configuration. It shares a single
+// ephemeris across all feeds and is safe for concurrent use.
+type Catalogue struct {
+	cfg   *config.Config
+	opts  Options
+	sky   *Sky
+	sites map[string]*config.Site
+}
+
+// NewCatalogue prepares the shared ephemeris covering every feed's window.
+// The configuration must be valid (config.Config.Validate).
+func NewCatalogue(cfg *config.Config, opts Options) (*Catalogue, error) {
+	c := &Catalogue{cfg: cfg, opts: opts, sites: map[string]*config.Site{}}
+	for i := range cfg.Sites {
+		c.sites[cfg.Sites[i].ID] = &cfg.Sites[i]
+	}
+	var first, last time.Time
+	for i := range cfg.Feeds {
+		f := &cfg.Feeds[i]
+		s, ok := c.sites[f.Site]
+		if !ok {
+			return nil, fmt.Errorf("feeds[%d].site: %q: no site has this id", i, f.Site)
+		}
+		a, b := c.window(f, s)
+		if first.IsZero() || a.Before(first) {
+			first = a
+		}
+		if last.IsZero() || b.After(last) {
+			last = b
+		}
+	}
+	if first.IsZero() {
+		first, last = civil(opts.Now), civil(opts.Now)
+	}
+	sky, err := NewSky(first, last)
+	if err != nil {
+		return nil, err
+	}
+	c.sky = sky
+	return c, nil
+}
+
+// window returns the first and last local dates of a feed (00:00 UTC).
+func (c *Catalogue) window(f *config.Feed, s *config.Site) (time.Time, time.Time) {
+	today := localDate(c.opts.Now, s.TimeZone.Location)
+	return today.AddDate(0, 0, -f.DaysBack), today.AddDate(0, 0, f.DaysAhead)
+}
+
+// Calendars builds every feed of the configuration, in configuration order.
+func (c *Catalogue) Calendars() ([]*Calendar, error) {
+	out := make([]*Calendar, 0, len(c.cfg.Feeds))
+	for i := range c.cfg.Feeds {
+		cal, err := c.Calendar(&c.cfg.Feeds[i])
+		if err != nil {
+			return nil, err
+		}
+		out = append(out, cal)
+	}
+	return out, nil
+}
+
+// Calendar builds one feed: its header and its entries over its window.
+func (c *Catalogue) Calendar(f *config.Feed) (*Calendar, error) {
+	s, ok := c.sites[f.Site]
+	if !ok {
+		return nil, fmt.Errorf("feed %q: site %q: no site has this id", f.ID, f.Site)
+	}
+	first, last := c.window(f, s)
+	return c.sky.Calendar(s, f, first, last, c.opts)
+}
+
+// Calendar builds one feed for a site over the local dates first..last,
+// which must lie within the dates the Sky was made for.
+func (sky *Sky) Calendar(s *config.Site, f *config.Feed, first, last time.Time, opts Options) (*Calendar, error) {
+	first, last = civil(first), civil(last)
+	loc := s.TimeZone.Location
+	cal := &Calendar{
+		ID:          f.ID,
+		Title:       f.Title,
+		Description: f.Description,
+		Site:        SiteOf(s),
+		UTC:         f.UTC,
+		Color:       f.Color,
+		PageURL:     opts.PageURL,
+		Refresh:     opts.Refresh,
+		Alarm:       time.Duration(f.Alarm),
+		WindowStart: midnight(first, loc).UTC(),
+		WindowEnd:   midnight(last.AddDate(0, 0, 1), loc).UTC(),
+		Stamp:       first,
+	}
+	if opts.FeedURL != nil {
+		cal.URL = opts.FeedURL(f.ID)
+	}
+	entries, err := sky.Entries(s, f.ID, f.Kinds, first, last)
+	if err != nil {
+		return nil, fmt.Errorf("feed %q: %w", f.ID, err)
+	}
+	cal.Entries = entries
+	return cal, nil
+}
+
+// SiteOf converts a configured site for the renderers.
+func SiteOf(s *config.Site) Site {
+	return Site{ID: s.ID, Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude,
+		Elevation: s.Elevation, Location: s.TimeZone.Location}
+}
+
+// PlaceOf is the observer and zone of a configured site.
+func PlaceOf(s *config.Site) Place {
+	return Place{
+		Observer: astro.Observer{Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation, Horizon: s.Horizon},
+		Location: s.TimeZone.Location,
+	}
+}
+
+// Entries turns the kinds of one feed into calendar entries for the local
+// dates first..last: events with their options applied, notes for dates
+// without an event, and daily summaries. Entries are sorted by Start, then UID.
+func (sky *Sky) Entries(s *config.Site, feedID string, specs []config.KindSpec, first, last time.Time) ([]Entry, error) {
+	col := &collector{sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
+	w := entryWriter{feedID: feedID, site: s, seen: map[string]int{}}
+	for _, spec := range specs {
+		if spec.Kind.Name == "daily-summary" {
+			if err := summaries(col, &w, spec); err != nil {
+				return nil, fmt.Errorf("%s: %w", spec.Kind, err)
+			}
+			continue
+		}
+		n0, m0 := len(col.events), len(col.notes)
+		if err := col.add(spec.Kind); err != nil {
+			return nil, fmt.Errorf("%s: %w", spec.Kind, err)
+		}
+		for _, e := range col.events[n0:] {
+			w.event(spec, e)
+		}
+		for _, n := range col.notes[m0:] {
+			w.note(n)
+		}
+	}
+	sort.Slice(w.out, func(i, j int) bool {
+		a, b := w.out[i], w.out[j]
+		if !a.Start.Equal(b.Start) {
+			return a.Start.Before(b.Start)
+		}
+		return a.UID < b.UID
+	})
+	return w.out, nil
+}
+
+// summaries adds one all-day entry per date: sunrise, sunset, day length and
+// civil twilight.
+func summaries(col *collector, w *entryWriter, spec config.KindSpec) error {
+	sub := &collector{sky: col.sky, p: col.p, first: col.first, last: col.last}
+	for _, name := range []string{"sunrise", "sunset", "civil-dawn", "civil-dusk"} {
+		if err := sub.add(config.Kind{Name: name}); err != nil {
+			return err
+		}
+	}
+	if err := sub.dayLengths(); err != nil {
+		return err
+	}
+	byDate := map[time.Time][]Event{}
+	for _, e := range sub.events {
+		byDate[e.Date] = append(byDate[e.Date], e)
+	}
+	notes := map[time.Time][]Note{}
+	for _, n := range sub.notes {
+		notes[n.Date] = append(notes[n.Date], n)
+	}
+	for i, d := 0, col.first; !d.After(col.last); i, d = i+1, d.AddDate(0, 0, 1) {
+		evs := byDate[d]
+		sort.Slice(evs, func(a, b int) bool { return evs[a].Start.Before(evs[b].Start) })
+		w.summary(spec, d, sub.lengths[i+1], sub.lengths[i+1]-sub.lengths[i], evs, notes[d])
+	}
+	return nil
+}
+
+// entryWriter turns events and notes into entries with stable UIDs.
+type entryWriter struct {
+	feedID string
+	site   *config.Site
+	seen   map[string]int
+	out    []Entry
+}
+
+// uid derives a stable UID from the identity of an entry, never from its
+// computed time: a rebuild that moves an event by a second keeps its UID.
+func (w *entryWriter) uid(parts ...string) string {
+	key := w.feedID + "|" + strings.Join(parts, "|")
+	n := w.seen[key]
+	w.seen[key] = n + 1
+	sum := sha256.Sum256(fmt.Appendf(nil, "%s|%d", key, n))
+	return hex.EncodeToString(sum[:12]) + "@heliocal"
+}
+
+func (w *entryWriter) event(spec config.KindSpec, e Event) {
+	offset := time.Duration(spec.Offset)
+	loc := w.site.TimeZone.Location
+	title, desc := describe(w.site, e)
+	if offset != 0 {
+		title = offsetTitle(offset, title)
+		desc = fmt.Sprintf("%s: %s.\n%s", title, localClock(e.Start.Add(offset), loc), desc)
+	}
+	if spec.Label != "" {
+		title = spec.Label
+	}
+	en := Entry{
+		Kind:        e.Kind.String(),
+		Title:       title,
+		Description: desc,
+		Categories:  categories(e.Kind),
+		Start:       e.Start.Add(offset),
+		Date:        e.Date,
+	}
+	if !e.End.IsZero() {
+		en.End = e.End.Add(offset)
+	}
+	if spec.AllDay || e.Kind.Name == "photoperiod" {
+		d := localDate(en.Start, loc)
+		en.AllDay, en.Start, en.End, en.Date = true, d, d.AddDate(0, 0, 1), d
+	}
+	en.UID = w.uid(e.Kind.String(), offset.String(), e.Date.Format(time.DateOnly), e.Part, dirString(e.Direction))
+	w.out = append(w.out, en)
+}
+
+func (w *entryWriter) note(n Note) {
+	title, desc := describeNote(w.site, n)
+	key := "note|" + n.Family + "|" + n.Date.Format(time.DateOnly)
+	if w.seen[key] > 0 {
+		return // the same state from a sibling kind (sunrise and sunset)
+	}
+	w.out = append(w.out, Entry{
+		UID:         w.uid(key),
+		Kind:        n.Kind.String(),
+		Title:       title,
+		Description: desc,
+		Categories:  categories(n.Kind),
+		Start:       n.Date,
+		End:         n.Date.AddDate(0, 0, 1),
+		AllDay:      true,
+		Date:        n.Date,
+	})
+}
+
+func (w *entryWriter) summary(spec config.KindSpec, d time.Time, length, change time.Duration, evs []Event, notes []Note) {
+	title, desc := describeSummary(w.site, length, change, evs, notes)
+	if spec.Label != "" {
+		title = spec.Label
+	}
+	w.out = append(w.out, Entry{
+		UID:         w.uid("daily-summary", d.Format(time.DateOnly)),
+		Kind:        "daily-summary",
+		Title:       title,
+		Description: desc,
+		Categories:  []string{"Sun", "Daylight"},
+		Start:       d,
+		End:         d.AddDate(0, 0, 1),
+		AllDay:      true,
+		Date:        d,
+	})
+}

@@ -1,0 +1,514 @@
+package feed
+
+import (
+	"fmt"
+	"sort"
+	"time"
+
+	"heliocal/astro"
+	"heliocal/config"
+)
+
+// Event is one computed sky event for a site: an instant (sunrise, an
+// equinox, a threshold crossing) or a span (golden hour, a dark window).
+// Events carry the numbers the descriptions quote.
+type Event struct {
+	Kind config.Kind
+	// Start is the instant (UTC); End is the end of a span, zero for an instant.
+	Start, End time.Time
+	// Direction is set for threshold crossings: astro.Rising or astro.Setting.
+	Direction astro.Direction
+	// Date is the site-local date of Start, at 00:00 UTC.
+	Date time.Time
+	// Part distinguishes the occurrences of a span kind on one date:
+	// "morning", "evening" or "all-day".
+	Part string
+
+	// Values quoted in descriptions; zero when they do not apply.
+	Altitude     float64       // solar noon: the Sun's altitude, degrees
+	Distance     float64       // perihelion/aphelion: Earth–Sun distance, au
+	DayLength    time.Duration // sunrise/sunset/photoperiod: time the Sun is up on Date
+	DayChange    time.Duration // DayLength minus the previous date's
+	SeasonLength time.Duration // seasons: time until the next season starts
+	Illuminated  float64       // Moon events: illuminated fraction 0..1
+	Waxing       bool          // Moon events: the Moon is waxing
+}
+
+// Note is an explicit "no event" state for a local date: the Sun does not set,
+// twilight never ends, there is no dark window tonight. Feeds show notes as
+// all-day entries so a missing event is never silent.
+type Note struct {
+	Kind  config.Kind
+	Date  time.Time // site-local date, 00:00 UTC
+	State astro.State
+	// Family groups kinds that share one note, e.g. sunrise and sunset both
+	// give "the Sun does not set today": one entry, not two.
+	Family string
+}
+
+// Place is where events are computed: an observer and the zone whose local
+// dates the events are grouped by.
+type Place struct {
+	Observer astro.Observer
+	Location *time.Location
+}
+
+// Sky computes events for any place from one shared ephemeris. It is safe
+// for concurrent use.
+type Sky struct {
+	eph *astro.Ephemeris
+}
+
+// NewSky prepares the shared ephemeris for events on local dates first..last
+// (any zone): it adds two days of margin on both sides.
+func NewSky(first, last time.Time) (*Sky, error) {
+	eph, err := astro.NewEphemeris(first.AddDate(0, 0, -2), last.AddDate(0, 0, 3))
+	if err != nil {
+		return nil, err
+	}
+	return &Sky{eph: eph}, nil
+}
+
+// civil returns the date part of t as 00:00 UTC.
+func civil(t time.Time) time.Time {
+	y, m, d := t.Date()
+	return time.Date(y, m, d, 0, 0, 0, 0, time.UTC)
+}
+
+// localDate is the site-local date of the instant t, at 00:00 UTC.
+func localDate(t time.Time, loc *time.Location) time.Time {
+	return civil(t.In(loc))
+}
+
+// midnight is the start of the civil date d in loc.
+func midnight(d time.Time, loc *time.Location) time.Time {
+	return time.Date(d.Year(), d.Month(), d.Day(), 0, 0, 0, 0, loc)
+}
+
+// Events computes every event of kinds on local dates first..last (inclusive,
+// 00:00 UTC civil dates) and the notes for dates on which a kind has no
+// event. Events are sorted by Start.
+func (s *Sky) Events(p Place, kinds []config.Kind, first, last time.Time) ([]Event, []Note, error) {
+	first, last = civil(first), civil(last)
+	if last.Before(first) {
+		return nil, nil, fmt.Errorf("feed: date range ends (%s) before it starts (%s)",
+			last.Format(time.DateOnly), first.Format(time.DateOnly))
+	}
+	c := &collector{sky: s, p: p, first: first, last: last}
+	for _, k := range kinds {
+		if err := c.add(k); err != nil {
+			return nil, nil, fmt.Errorf("feed: %s: %w", k, err)
+		}
+	}
+	sort.SliceStable(c.events, func(i, j int) bool { return c.events[i].Start.Before(c.events[j].Start) })
+	sort.SliceStable(c.notes, func(i, j int) bool { return c.notes[i].Date.Before(c.notes[j].Date) })
+	return c.events, c.notes, nil
+}
+
+type collector struct {
+	sky         *Sky
+	p           Place
+	first, last time.Time
+	events      []Event
+	notes       []Note
+	lengths     []time.Duration // day lengths for first-1..last, computed once
+}
+
+func (c *collector) inRange(d time.Time) bool {
+	return !d.Before(c.first) && !d.After(c.last)
+}
+
+// span is the UTC interval covering the local dates first..last, widened by
+// pad days on each side.
+func (c *collector) span(pad int) (time.Time, time.Time) {
+	return midnight(c.first.AddDate(0, 0, -pad), c.p.Location), midnight(c.last.AddDate(0, 0, 1+pad), c.p.Location)
+}
+
+func (c *collector) add(k config.Kind) error {
+	switch k.Name {
+	case "sunrise":
+		return c.crossings(k, c.p.Observer.RiseSetAltitude(), astro.Rising, "sun-horizon")
+	case "sunset":
+		return c.crossings(k, c.p.Observer.RiseSetAltitude(), astro.Setting, "sun-horizon")
+	case "civil-dawn":
+		return c.crossings(k, astro.CivilTwilight, astro.Rising, "civil")
+	case "civil-dusk":
+		return c.crossings(k, astro.CivilTwilight, astro.Setting, "civil")
+	case "nautical-dawn":
+		return c.crossings(k, astro.NauticalTwilight, astro.Rising, "nautical")
+	case "nautical-dusk":
+		return c.crossings(k, astro.NauticalTwilight, astro.Setting, "nautical")
+	case "astronomical-dawn":
+		return c.crossings(k, astro.AstronomicalTwilight, astro.Rising, "astronomical")
+	case "astronomical-dusk":
+		return c.crossings(k, astro.AstronomicalTwilight, astro.Setting, "astronomical")
+	case "sun-altitude":
+		return c.crossings(k, k.Altitude, 0, fmt.Sprintf("altitude:%g", k.Altitude))
+	case "solar-noon":
+		return c.noons(k)
+	case "golden-hour":
+		return c.band(k, astro.GoldenHourLow, astro.GoldenHourHigh)
+	case "blue-hour":
+		return c.band(k, astro.BlueHourLow, astro.BlueHourHigh)
+	case "march-equinox", "june-solstice", "september-equinox", "december-solstice", "seasons":
+		return c.seasons(k)
+	case "cross-quarter":
+		return c.crossQuarters(k)
+	case "perihelion", "aphelion":
+		return c.apsides(k)
+	case "photoperiod":
+		return c.photoperiod(k)
+	case "daily-summary":
+		return nil // rendered from other kinds by the catalogue
+	}
+	return c.addMoon(k)
+}
+
+// crossings adds the crossings of a threshold altitude in one direction
+// (both when dir is 0), and a note for each date without any crossing.
+func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, family string) error {
+	days, err := c.sky.eph.SunDays(c.p.Observer, alt, c.p.Location,
+		midnight(c.first, c.p.Location), midnight(c.last, c.p.Location))
+	if err != nil {
+		return err
+	}
+	horizon := family == "sun-horizon"
+	if horizon {
+		if err := c.dayLengths(); err != nil {
+			return err
+		}
+	}
+	for i, d := range days {
+		date := civil(d.Date)
+		if d.State != astro.Crosses {
+			c.notes = append(c.notes, Note{Kind: k, Date: date, State: d.State, Family: family})
+			continue
+		}
+		add := func(ts []time.Time, direction astro.Direction) {
+			for _, t := range ts {
+				e := Event{Kind: k, Start: t, Direction: direction, Date: date}
+				if horizon {
+					e.DayLength, e.DayChange = c.lengths[i+1], c.lengths[i+1]-c.lengths[i]
+				}
+				c.events = append(c.events, e)
+			}
+		}
+		if dir == 0 || dir == astro.Rising {
+			add(d.Rising, astro.Rising)
+		}
+		if dir == 0 || dir == astro.Setting {
+			add(d.Setting, astro.Setting)
+		}
+	}
+	return nil
+}
+
+// dayLengths computes, once, the time the Sun's upper limb is above the
+// horizon on each local date first-1..last: the photoperiod.
+func (c *collector) dayLengths() error {
+	if c.lengths != nil {
+		return nil
+	}
+	l, err := c.above(c.p.Observer.RiseSetAltitude())
+	c.lengths = l
+	return err
+}
+
+// above returns, for each local date first-1..last, the time the Sun's
+// centre spends above alt: the sum of the above-threshold intervals within
+// the date, so it is 24 h (or the date's length across a clock change) when
+// the Sun never drops below, 0 when it never gets there, and an interval that
+// runs past midnight counts on each date for its own part.
+func (c *collector) above(alt float64) ([]time.Duration, error) {
+	from := midnight(c.first.AddDate(0, 0, -1), c.p.Location)
+	to := midnight(c.last.AddDate(0, 0, 1), c.p.Location)
+	o := c.p.Observer
+	xs, err := c.sky.eph.SunCrossings(o, alt, from, to)
+	if err != nil {
+		return nil, err
+	}
+	h0, err := c.sky.eph.SunAltitude(o, from)
+	if err != nil {
+		return nil, err
+	}
+	n := int(c.last.Sub(c.first).Hours()/24+0.5) + 2
+	lengths := make([]time.Duration, n)
+	up := h0 > alt
+	cur := from
+	for day := 0; day < n; {
+		dayEnd := midnight(c.first.AddDate(0, 0, day), c.p.Location)
+		next, crossing := dayEnd, len(xs) > 0 && xs[0].Time.Before(dayEnd)
+		if crossing {
+			next = xs[0].Time
+		}
+		if up {
+			lengths[day] += next.Sub(cur)
+		}
+		cur = next
+		if crossing {
+			up = xs[0].Direction == astro.Rising
+			xs = xs[1:]
+			continue
+		}
+		day++
+	}
+	return lengths, nil
+}
+
+// Profile is one local date of a site's year, for charts: how long the Sun
+// stays above the horizon and above each twilight limit.
+type Profile struct {
+	Date         time.Time     // local date, 00:00 UTC
+	Daylight     time.Duration // upper limb above the horizon (sunrise to sunset)
+	Civil        time.Duration // centre above −6°
+	Nautical     time.Duration // centre above −12°
+	Astronomical time.Duration // centre above −18°
+}
+
+// Profiles returns the daylight and twilight durations of each local date
+// first..last.
+func (s *Sky) Profiles(p Place, first, last time.Time) ([]Profile, error) {
+	c := &collector{sky: s, p: p, first: civil(first), last: civil(last)}
+	var cols [4][]time.Duration
+	for i, alt := range []float64{p.Observer.RiseSetAltitude(), astro.CivilTwilight, astro.NauticalTwilight, astro.AstronomicalTwilight} {
+		l, err := c.above(alt)
+		if err != nil {
+			return nil, err
+		}
+		cols[i] = l
+	}
+	out := make([]Profile, 0, len(cols[0])-1)
+	for i := 1; i < len(cols[0]); i++ {
+		out = append(out, Profile{Date: c.first.AddDate(0, 0, i-1),
+			Daylight: cols[0][i], Civil: cols[1][i], Nautical: cols[2][i], Astronomical: cols[3][i]})
+	}
+	return out, nil
+}
+
+// noons adds the upper transit of every date, with the Sun's altitude; it
+// exists in polar night too.
+func (c *collector) noons(k config.Kind) error {
+	from, to := c.span(0)
+	ts, err := c.sky.eph.SunTransits(c.p.Observer, from, to)
+	if err != nil {
+		return err
+	}
+	for _, t := range ts {
+		d := localDate(t.Time, c.p.Location)
+		if c.inRange(d) {
+			c.events = append(c.events, Event{Kind: k, Start: t.Time, Date: d, Altitude: t.Altitude})
+		}
+	}
+	return nil
+}
+
+// band adds the spans during which the Sun's centre is between low and high:
+// golden hour (−4°..+6°) or blue hour (−6°..−4°). A span entered while the Sun
+// rises is "morning", while it sets "evening"; one that is entered and left
+// through the same bound without reaching the other (the low winter Sun at
+// high latitude) is "all-day". Dates on which the Sun never enters the band
+// get a note.
+func (c *collector) band(k config.Kind, low, high float64) error {
+	from, to := c.span(2)
+	o := c.p.Observer
+	lo, err := c.sky.eph.SunCrossings(o, low, from, to)
+	if err != nil {
+		return err
+	}
+	hi, err := c.sky.eph.SunCrossings(o, high, from, to)
+	if err != nil {
+		return err
+	}
+	h0, err := c.sky.eph.SunAltitude(o, from)
+	if err != nil {
+		return err
+	}
+	type mark struct {
+		t    time.Time
+		high bool
+		dir  astro.Direction
+	}
+	marks := make([]mark, 0, len(lo)+len(hi))
+	for _, x := range lo {
+		marks = append(marks, mark{x.Time, false, x.Direction})
+	}
+	for _, x := range hi {
+		marks = append(marks, mark{x.Time, true, x.Direction})
+	}
+	sort.Slice(marks, func(i, j int) bool { return marks[i].t.Before(marks[j].t) })
+
+	in := h0 >= low && h0 <= high
+	var start time.Time
+	var entered mark
+	seen := map[time.Time]bool{}
+	for _, m := range marks {
+		entering := (!m.high && m.dir == astro.Rising) || (m.high && m.dir == astro.Setting)
+		if entering && !in {
+			in, start, entered = true, m.t, m
+			continue
+		}
+		if !entering && in {
+			in = false
+			if start.IsZero() {
+				continue // entered before the computed span: not ours
+			}
+			part := "morning"
+			switch {
+			case entered.high && m.high: // the Sun dips into the band around midnight
+				part = "night"
+			case entered.high:
+				part = "evening"
+			case !m.high: // in through the low bound, out through it again
+				part = "all-day"
+			}
+			d := localDate(start, c.p.Location)
+			if c.inRange(d) {
+				c.events = append(c.events, Event{Kind: k, Start: start, End: m.t, Date: d, Part: part})
+				seen[d] = true
+			}
+			start = time.Time{}
+		}
+	}
+	for d := c.first; !d.After(c.last); d = d.AddDate(0, 0, 1) {
+		if seen[d] {
+			continue
+		}
+		// No span starts on this date: either one runs through it from the
+		// day before, or the Sun stays above or below the band all day.
+		noon := midnight(d, c.p.Location).Add(12 * time.Hour)
+		h, err := c.sky.eph.SunAltitude(o, noon)
+		if err != nil {
+			return err
+		}
+		switch {
+		case h > high && c.noSpanCovers(d):
+			c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.AlwaysAbove, Family: k.String()})
+		case h < low && c.noSpanCovers(d):
+			c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.AlwaysBelow, Family: k.String()})
+		}
+	}
+	return nil
+}
+
+// noSpanCovers reports whether no span of the events collected so far
+// overlaps the local date d.
+func (c *collector) noSpanCovers(d time.Time) bool {
+	from := midnight(d, c.p.Location)
+	to := midnight(d.AddDate(0, 0, 1), c.p.Location)
+	for _, e := range c.events {
+		if !e.End.IsZero() && e.Start.Before(to) && e.End.After(from) {
+			return false
+		}
+	}
+	return true
+}
+
+// years lists the calendar years that the window touches, with one more on
+// each side so events near New Year in far zones are not missed.
+func (c *collector) years() []int {
+	var ys []int
+	for y := c.first.Year() - 1; y <= c.last.Year()+1; y++ {
+		ys = append(ys, y)
+	}
+	return ys
+}
+
+var seasonIndex = map[string]int{"march-equinox": 0, "june-solstice": 1, "september-equinox": 2, "december-solstice": 3}
+
+func (c *collector) seasons(k config.Kind) error {
+	var all []time.Time
+	for _, y := range c.years() {
+		s, err := astro.Seasons(y)
+		if err != nil {
+			return err
+		}
+		all = append(all, s[:]...)
+	}
+	// the season after the last listed one, for the length of that season
+	next, err := astro.Seasons(c.last.Year() + 2)
+	if err != nil {
+		return err
+	}
+	all = append(all, next[0])
+	for i := 0; i+1 < len(all); i++ {
+		name := seasonNames[i%4]
+		if k.Name != "seasons" && k.Name != name {
+			continue
+		}
+		d := localDate(all[i], c.p.Location)
+		if !c.inRange(d) {
+			continue
+		}
+		kk := k
+		if k.Name == "seasons" {
+			kk = config.Kind{Name: name}
+		}
+		c.events = append(c.events, Event{Kind: kk, Start: all[i], Date: d, SeasonLength: all[i+1].Sub(all[i])})
+	}
+	return nil
+}
+
+var seasonNames = [4]string{"march-equinox", "june-solstice", "september-equinox", "december-solstice"}
+
+func (c *collector) crossQuarters(k config.Kind) error {
+	for _, y := range c.years() {
+		q, err := astro.CrossQuarters(y)
+		if err != nil {
+			return err
+		}
+		for i, t := range q {
+			d := localDate(t, c.p.Location)
+			if c.inRange(d) {
+				c.events = append(c.events, Event{Kind: k, Start: t, Date: d, Part: crossQuarterParts[i]})
+			}
+		}
+	}
+	return nil
+}
+
+// crossQuarterParts name the cross-quarter instants by the apparent solar
+// longitude they mark.
+var crossQuarterParts = [4]string{"45", "135", "225", "315"}
+
+func (c *collector) apsides(k config.Kind) error {
+	f := astro.Perihelion
+	if k.Name == "aphelion" {
+		f = astro.Aphelion
+	}
+	for _, y := range c.years() {
+		t, r, err := f(y)
+		if err != nil {
+			return err
+		}
+		d := localDate(t, c.p.Location)
+		if c.inRange(d) {
+			c.events = append(c.events, Event{Kind: k, Start: t, Date: d, Distance: r})
+		}
+	}
+	return nil
+}
+
+// photoperiod adds an event on each local date whose day length crosses the
+// configured duration: rising when it reaches it, setting when it falls below.
+// Start is the local midnight that begins the date; the entry is all-day.
+func (c *collector) photoperiod(k config.Kind) error {
+	if err := c.dayLengths(); err != nil {
+		return err
+	}
+	for i := 1; i < len(c.lengths); i++ {
+		prev, cur := c.lengths[i-1], c.lengths[i]
+		var dir astro.Direction
+		switch {
+		case prev < k.DayLength && cur >= k.DayLength:
+			dir = astro.Rising
+		case prev >= k.DayLength && cur < k.DayLength:
+			dir = astro.Setting
+		default:
+			continue
+		}
+		d := c.first.AddDate(0, 0, i-1)
+		c.events = append(c.events, Event{Kind: k, Start: midnight(d, c.p.Location), Date: d,
+			Direction: dir, DayLength: cur, DayChange: cur - prev})
+	}
+	return nil
+}

@@ -1,0 +1,336 @@
+package feed
+
+import (
+	"fmt"
+	"math"
+	"strings"
+	"time"
+
+	"heliocal/astro"
+	"heliocal/config"
+)
+
+// Cautions appended to descriptions that someone could rely on for legal
+// purposes or for their eyes.
+const (
+	cautionLegal = "Computed for planning from the site's coordinates and a flat horizon; local rules decide " +
+		"legal times such as hunting hours, lighting-up times and aviation night."
+	cautionEyes = "Never look directly at the Sun."
+)
+
+// dirString is a direction's name, "" when unset.
+func dirString(d astro.Direction) string {
+	if d == 0 {
+		return ""
+	}
+	return d.String()
+}
+
+// localClock formats an instant as site-local clock time with the zone
+// abbreviation, e.g. "06:47:12 CET".
+func localClock(t time.Time, loc *time.Location) string {
+	return t.In(loc).Format("15:04:05 MST")
+}
+
+// hm formats a duration as "9 h 25 m" (rounded to the minute).
+func hm(d time.Duration) string {
+	d = d.Round(time.Minute)
+	h := int(d / time.Hour)
+	m := int((d % time.Hour) / time.Minute)
+	return fmt.Sprintf("%d h %02d m", h, m)
+}
+
+// change formats a signed day-length change as "+1 m 30 s" or "−2 m 05 s".
+func change(d time.Duration) string {
+	sign := "+"
+	if d < 0 {
+		sign, d = "−", -d
+	}
+	d = d.Round(time.Second)
+	m := int(d / time.Minute)
+	s := int((d % time.Minute) / time.Second)
+	return fmt.Sprintf("%s%d m %02d s", sign, m, s)
+}
+
+// days formats a long duration as "92 d 18 h".
+func days(d time.Duration) string {
+	d = d.Round(time.Hour)
+	return fmt.Sprintf("%d d %d h", int(d/(24*time.Hour)), int((d%(24*time.Hour))/time.Hour))
+}
+
+// degrees formats an angle with one decimal and a proper minus sign.
+func degrees(a float64) string {
+	s := fmt.Sprintf("%.1f°", a)
+	return strings.Replace(s, "-", "−", 1)
+}
+
+func where(s *config.Site) string {
+	ns, ew := "N", "E"
+	lat, lon := s.Latitude, s.Longitude
+	if lat < 0 {
+		ns, lat = "S", -lat
+	}
+	if lon < 0 {
+		ew, lon = "W", -lon
+	}
+	return fmt.Sprintf("%s (%.3f° %s, %.3f° %s)", s.Name, lat, ns, lon, ew)
+}
+
+var plainNames = map[string]string{
+	"sunrise":           "Sunrise",
+	"sunset":            "Sunset",
+	"solar-noon":        "Solar noon",
+	"civil-dawn":        "Civil dawn",
+	"civil-dusk":        "Civil dusk",
+	"nautical-dawn":     "Nautical dawn",
+	"nautical-dusk":     "Nautical dusk",
+	"astronomical-dawn": "Astronomical dawn",
+	"astronomical-dusk": "Astronomical dusk",
+	"golden-hour":       "Golden hour",
+	"blue-hour":         "Blue hour",
+	"march-equinox":     "March equinox",
+	"june-solstice":     "June solstice",
+	"september-equinox": "September equinox",
+	"december-solstice": "December solstice",
+	"cross-quarter":     "Cross-quarter day",
+	"perihelion":        "Perihelion",
+	"aphelion":          "Aphelion",
+	"new-moon":          "New moon",
+	"first-quarter":     "First quarter",
+	"full-moon":         "Full moon",
+	"last-quarter":      "Last quarter",
+	"moonrise":          "Moonrise",
+	"moonset":           "Moonset",
+	"moon-transit":      "Moon highest",
+	"dark-window":       "Dark sky",
+}
+
+var twilightMeaning = map[string]string{
+	"civil-dawn":        "Civil dawn: the Sun's centre rises through 6° below the horizon; outdoor work is possible without lights from now.",
+	"civil-dusk":        "Civil dusk: the Sun's centre sinks through 6° below the horizon; from now outdoor work needs lights.",
+	"nautical-dawn":     "Nautical dawn: the Sun's centre rises through 12° below the horizon; the horizon becomes visible at sea.",
+	"nautical-dusk":     "Nautical dusk: the Sun's centre sinks through 12° below the horizon; the horizon fades at sea.",
+	"astronomical-dawn": "Astronomical dawn: the Sun's centre rises through 18° below the horizon; the sky starts to brighten.",
+	"astronomical-dusk": "Astronomical dusk: the Sun's centre sinks through 18° below the horizon; the sky is fully dark from now.",
+}
+
+// categories are the CATEGORIES of a kind: a family word and the kind's name.
+func categories(k config.Kind) []string {
+	name := plainNames[k.Name]
+	switch k.Name {
+	case "sun-altitude":
+		name = "Sun altitude"
+	case "photoperiod":
+		name = "Day length"
+	case "daily-summary":
+		name = "Daylight"
+	case "seasons":
+		name = "Season"
+	}
+	family := "Sun"
+	if strings.Contains(k.Name, "moon") || k.Name == "first-quarter" || k.Name == "last-quarter" || k.Name == "dark-window" {
+		family = "Moon"
+	}
+	return []string{family, name}
+}
+
+// offsetTitle names a shifted event: "30 m before sunrise".
+func offsetTitle(offset time.Duration, title string) string {
+	word := "after"
+	if offset < 0 {
+		word, offset = "before", -offset
+	}
+	amount := strings.TrimSuffix(strings.TrimSuffix(offset.String(), "0s"), "0m")
+	amount = strings.NewReplacer("h", " h ", "m", " min", "s", " s").Replace(amount)
+	return strings.TrimSpace(strings.Join(strings.Fields(amount), " ")) + " " + word + " " + strings.ToLower(title[:1]) + title[1:]
+}
+
+// describe gives the title and plain-language description of an event.
+func describe(s *config.Site, e Event) (string, string) {
+	loc := s.TimeZone.Location
+	at := localClock(e.Start, loc)
+	var b strings.Builder
+	title := plainNames[e.Kind.Name]
+	switch e.Kind.Name {
+	case "sunrise", "sunset":
+		fmt.Fprintf(&b, "%s at %s, %s.\n", title, at, where(s))
+		fmt.Fprintf(&b, "Day length %s (%s on the day before).\n", hm(e.DayLength), change(e.DayChange))
+		b.WriteString("Upper limb of the Sun on the horizon with standard refraction.\n")
+		b.WriteString(cautionLegal)
+	case "civil-dawn", "civil-dusk", "nautical-dawn", "nautical-dusk", "astronomical-dawn", "astronomical-dusk":
+		fmt.Fprintf(&b, "%s at %s, %s.\n%s", title, at, where(s), twilightMeaning[e.Kind.Name])
+		if strings.HasPrefix(e.Kind.Name, "civil") {
+			b.WriteString("\n" + cautionLegal)
+		}
+	case "solar-noon":
+		title = fmt.Sprintf("Solar noon, Sun %s high", degrees(e.Altitude))
+		fmt.Fprintf(&b, "Solar noon at %s, %s: the Sun crosses the meridian at %s altitude", at, where(s), degrees(e.Altitude))
+		if e.Altitude < 0 {
+			b.WriteString(" (below the horizon: polar night)")
+		}
+		b.WriteString(".\n" + cautionEyes)
+	case "golden-hour", "blue-hour":
+		title = fmt.Sprintf("%s (%s)", title, partName(e.Part))
+		lo, hi := "−4°", "+6°"
+		if e.Kind.Name == "blue-hour" {
+			lo, hi = "−6°", "−4°"
+		}
+		fmt.Fprintf(&b, "%s from %s to %s (%s), %s.\nThe Sun's centre is between %s and %s: soft, warm light for photography and events.\n",
+			title, at, localClock(e.End, loc), hm(e.End.Sub(e.Start)), where(s), lo, hi)
+		b.WriteString(cautionEyes)
+	case "sun-altitude":
+		verb := "rises through"
+		if e.Direction == astro.Setting {
+			verb = "sinks through"
+		}
+		title = fmt.Sprintf("Sun %s %s", verb, degrees(e.Kind.Altitude))
+		fmt.Fprintf(&b, "The Sun's centre %s %s altitude at %s, %s.\n%s", verb, degrees(e.Kind.Altitude), at, where(s), cautionEyes)
+	case "march-equinox", "june-solstice", "september-equinox", "december-solstice":
+		season := seasonStarted(e.Kind.Name, s.Latitude)
+		fmt.Fprintf(&b, "%s at %s (%s UTC).\nStart of astronomical %s in the %s hemisphere; it lasts %s, until the next equinox or solstice.",
+			title, at, e.Start.UTC().Format("2006-01-02 15:04:05"), season, hemisphere(s.Latitude), days(e.SeasonLength))
+		title = fmt.Sprintf("%s: %s begins", title, capital(season))
+	case "cross-quarter":
+		fmt.Fprintf(&b, "Cross-quarter day at %s (%s UTC): the Sun reaches ecliptic longitude %s°, midway between %s.\n"+
+			"Farm calendars mark these quarter points of the seasons.", at, e.Start.UTC().Format("2006-01-02 15:04:05"), e.Part, crossQuarterBetween[e.Part])
+	case "perihelion", "aphelion":
+		near := "closest to"
+		if e.Kind.Name == "aphelion" {
+			near = "farthest from"
+		}
+		title = fmt.Sprintf("%s: Earth %s the Sun", title, near)
+		fmt.Fprintf(&b, "Earth is %s the Sun at %s (%s UTC): %.6f au (%s km).", near, at,
+			e.Start.UTC().Format("2006-01-02 15:04"), e.Distance, thousands(e.Distance*149597870.7))
+	case "photoperiod":
+		if e.Direction == astro.Rising {
+			title = fmt.Sprintf("Day length reaches %s", hm(e.Kind.DayLength))
+		} else {
+			title = fmt.Sprintf("Day length falls below %s", hm(e.Kind.DayLength))
+		}
+		fmt.Fprintf(&b, "%s today at %s: the Sun is up for %s (%s on the day before).\n"+
+			"Lighting programs for greenhouses and livestock switch on this threshold.",
+			title, s.Name, hm(e.DayLength), change(e.DayChange))
+	default:
+		return describeMoon(s, e)
+	}
+	return title, b.String()
+}
+
+var crossQuarterBetween = map[string]string{
+	"45":  "the March equinox and the June solstice",
+	"135": "the June solstice and the September equinox",
+	"225": "the September equinox and the December solstice",
+	"315": "the December solstice and the March equinox",
+}
+
+func partName(p string) string {
+	switch p {
+	case "all-day":
+		return "all day, low Sun"
+	case "night":
+		return "around midnight"
+	}
+	return p
+}
+
+func hemisphere(lat float64) string {
+	if lat < 0 {
+		return "southern"
+	}
+	return "northern"
+}
+
+// seasonStarted is the astronomical season an equinox or solstice starts in
+// the site's hemisphere.
+func seasonStarted(kind string, lat float64) string {
+	north := map[string]string{"march-equinox": "spring", "june-solstice": "summer",
+		"september-equinox": "autumn", "december-solstice": "winter"}
+	south := map[string]string{"march-equinox": "autumn", "june-solstice": "winter",
+		"september-equinox": "spring", "december-solstice": "summer"}
+	if lat < 0 {
+		return south[kind]
+	}
+	return north[kind]
+}
+
+func capital(s string) string {
+	if s == "" {
+		return s
+	}
+	return strings.ToUpper(s[:1]) + s[1:]
+}
+
+// thousands formats a number rounded to the unit with thin grouping commas.
+func thousands(x float64) string {
+	n := int64(math.Round(x))
+	s := fmt.Sprint(n)
+	var out []byte
+	for i := range len(s) {
+		if i > 0 && (len(s)-i)%3 == 0 {
+			out = append(out, ',')
+		}
+		out = append(out, s[i])
+	}
+	return string(out)
+}
+
+// describeNote gives the all-day entry for a date without an event.
+func describeNote(s *config.Site, n Note) (string, string) {
+	above := n.State == astro.AlwaysAbove
+	var title, desc string
+	switch n.Family {
+	case "sun-horizon":
+		if above {
+			title, desc = "Midnight sun: the Sun does not set today", "The Sun stays above the horizon all day and night"
+		} else {
+			title, desc = "Polar night: the Sun does not rise today", "The Sun stays below the horizon all day"
+		}
+	case "civil", "nautical", "astronomical":
+		deg := map[string]string{"civil": "6°", "nautical": "12°", "astronomical": "18°"}[n.Family]
+		if above {
+			title = fmt.Sprintf("No %s dusk or dawn tonight: %s twilight lasts all night", n.Family, n.Family)
+			desc = fmt.Sprintf("The Sun's centre stays less than %s below the horizon all night", deg)
+		} else {
+			title = fmt.Sprintf("No %s twilight today: the Sun stays more than %s below the horizon", n.Family, deg)
+			desc = title
+		}
+	default:
+		switch n.Kind.Name {
+		case "golden-hour", "blue-hour":
+			name := strings.ToLower(plainNames[n.Kind.Name])
+			if above {
+				title = fmt.Sprintf("No %s today: the Sun stays above it", name)
+			} else {
+				title = fmt.Sprintf("No %s today: the Sun stays below it", name)
+			}
+			desc = title
+		case "sun-altitude":
+			if above {
+				title = fmt.Sprintf("The Sun stays above %s all day", degrees(n.Kind.Altitude))
+			} else {
+				title = fmt.Sprintf("The Sun stays below %s all day", degrees(n.Kind.Altitude))
+			}
+			desc = title
+		default:
+			return describeMoonNote(s, n)
+		}
+	}
+	return title, fmt.Sprintf("%s at %s on %s.", desc, where(s), n.Date.Format("Monday 2 January 2006"))
+}
+
+// describeSummary gives the daily summary: sunrise, sunset, day length and
+// civil twilight, with the polar states spelled out.
+func describeSummary(s *config.Site, length, delta time.Duration, evs []Event, notes []Note) (string, string) {
+	loc := s.TimeZone.Location
+	var b strings.Builder
+	title := fmt.Sprintf("Daylight %s", hm(length))
+	for _, n := range notes {
+		t, _ := describeNote(s, n)
+		b.WriteString(t + ".\n")
+	}
+	for _, e := range evs {
+		fmt.Fprintf(&b, "%s %s\n", plainNames[e.Kind.Name], e.Start.In(loc).Format("15:04 MST"))
+	}
+	fmt.Fprintf(&b, "Day length %s (%s on the day before), %s.\n%s", hm(length), change(delta), where(s), cautionLegal)
+	return title, b.String()
+}

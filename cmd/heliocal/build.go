@@ -197,4 +197,3 @@ func adhocFeed(l layout, refresh time.Duration) serve.AdhocFunc {
 		return ical.Marshal(cal, ical.Options{Version: versionString()})
 	}
 }
-

@@ -121,3 +121,125 @@ func Moon(t time.Time) (MoonPosition, error) {
 	}
 	return moonApparent(e.JDE).position(), nil
 }
+
+// Illumination describes the Moon's lit disk as seen from the Earth's
+// centre (Meeus, Astronomical Algorithms 2nd ed., ch. 48).
+type Illumination struct {
+	// Fraction is the illuminated fraction of the disk, 0..1:
+	// (1 + cos i)/2 (eq. 48.1).
+	Fraction float64
+	// PhaseAngle i is the Sun–Moon–Earth angle, degrees 0..180 (eqs. 48.2,
+	// 48.3, from the geocentric elongation ψ and both distances).
+	PhaseAngle float64
+	// Elongation is the apparent geocentric elongation in longitude
+	// λ☾ − λ☉, degrees [0, 360): 0 at new moon, 90 at first quarter, 180 at
+	// full moon, 270 at last quarter.
+	Elongation float64
+	// BrightLimb is the position angle χ of the midpoint of the bright limb,
+	// degrees [0, 360), from the north point of the disk towards the east
+	// (eq. 48.5); near 270° the waxing Moon is lit on its west (right, for a
+	// northern observer) side.
+	BrightLimb float64
+	// Waxing is true from new moon to full moon (Elongation in [0, 180)).
+	Waxing bool
+}
+
+// illumination computes the Moon's illumination from the apparent
+// geocentric Moon (ra, dec, dist in km) and Sun (ra0, dec0, r0 in km),
+// radians, and the elongation in longitude (radians).
+func illumination(ra, dec, dist, ra0, dec0, r0, elong float64) Illumination {
+	sd, cd := math.Sincos(dec)
+	sd0, cd0 := math.Sincos(dec0)
+	sa, ca := math.Sincos(ra0 - ra)
+	cosPsi := sd0*sd + cd0*cd*ca
+	psi := math.Acos(max(-1, min(1, cosPsi)))
+	i := math.Atan2(r0*math.Sin(psi), dist-r0*cosPsi)
+	chi := math.Atan2(cd0*sa, sd0*cd-cd0*sd*ca)
+	elong = norm2Pi(elong)
+	return Illumination{
+		Fraction:   (1 + math.Cos(i)) / 2,
+		PhaseAngle: i * rad2deg,
+		Elongation: elong * rad2deg,
+		BrightLimb: norm2Pi(chi) * rad2deg,
+		Waxing:     elong < math.Pi,
+	}
+}
+
+// MoonIllumination returns the Moon's illuminated fraction, phase angle,
+// elongation, position angle of the bright limb and whether it is waxing,
+// at the UTC instant t, from the apparent positions of moon.go and sun.go
+// (Meeus ch. 48, the rigorous eqs. 48.2–48.3, not the approximate 48.4). It
+// returns a *RangeError outside MinTime..MaxTime.
+func MoonIllumination(t time.Time) (Illumination, error) {
+	e, err := NewEpoch(t)
+	if err != nil {
+		return Illumination{}, err
+	}
+	m := moonApparent(e.JDE)
+	s := apparentSun(e.JDE)
+	return illumination(m.ra, m.dec, m.dist, s.ra, s.dec, s.r*auKm, m.lon-s.lambda), nil
+}
+
+// MoonTopocentric is the apparent position of the Moon as seen from a place
+// on the Earth's surface. Angles are in degrees.
+type MoonTopocentric struct {
+	RightAscension, Declination float64 // topocentric, true equator and equinox of date; RA in [0, 360)
+	HourAngle                   float64 // local topocentric hour angle, (−180, 180], west positive
+	Altitude                    float64 // geometric altitude of the centre (no refraction)
+	Azimuth                     float64 // from north through east, [0, 360)
+	Distance                    float64 // from the observer to the Moon's centre, km
+	Semidiameter                float64 // topocentric, asin(1737.4 km / Distance)
+}
+
+// MoonFrom returns the Moon's topocentric position for the observer at the
+// UTC instant t: the apparent geocentric Moon corrected for parallax by the
+// rigorous formulas of Meeus, Astronomical Algorithms 2nd ed., ch. 40
+// (eqs. 40.2, 40.3, with ρ sin φ′, ρ cos φ′ of ch. 11 from the geodetic
+// latitude and the elevation), then altitude and azimuth (ch. 13) with the
+// apparent sidereal time. It returns a *RangeError outside
+// MinTime..MaxTime and an *InputError for an invalid observer.
+func MoonFrom(o Observer, t time.Time) (MoonTopocentric, error) {
+	if err := o.Validate(); err != nil {
+		return MoonTopocentric{}, err
+	}
+	e, err := NewEpoch(t)
+	if err != nil {
+		return MoonTopocentric{}, err
+	}
+	m := moonApparent(e.JDE)
+	phi := o.Latitude * deg2rad
+	ba := 1 - earthFlattening
+	u := math.Atan(ba * math.Tan(phi))
+	hr := o.Elevation / (earthRadiusKm * 1000)
+	rhoSin := ba*math.Sin(u) + hr*math.Sin(phi)
+	rhoCos := math.Cos(u) + hr*math.Cos(phi)
+	theta := ApparentSiderealTime(e.JDUT1, e.JDE) * deg2rad
+	H := theta + o.Longitude*deg2rad - m.ra
+	sinPi := earthRadiusKm / m.dist
+	sH, cH := math.Sincos(H)
+	sd, cd := math.Sincos(m.dec)
+	den := cd - rhoCos*sinPi*cH
+	dRA := math.Atan2(-rhoCos*sinPi*sH, den)
+	dec := math.Atan2((sd-rhoSin*sinPi)*math.Cos(dRA), den)
+	Hp := H - dRA
+	sHp, cHp := math.Sincos(Hp)
+	sp, cp := math.Sincos(phi)
+	sdp, cdp := math.Sincos(dec)
+	alt := math.Asin(sp*sdp + cp*cdp*cHp)
+	az := math.Atan2(sHp, cHp*sp-sdp/cdp*cp) + math.Pi // Meeus 13.5 counts from the south
+	// distance: |geocentric Moon − observer|, in Earth radii then km
+	q := 1 / sinPi
+	x := q*cd*cH - rhoCos
+	y := q * cd * sH
+	z := q*sd - rhoSin
+	dist := math.Sqrt(x*x+y*y+z*z) * earthRadiusKm
+	return MoonTopocentric{
+		RightAscension: norm2Pi(m.ra+dRA) * rad2deg,
+		Declination:    dec * rad2deg,
+		HourAngle:      math.Remainder(Hp, 2*math.Pi) * rad2deg,
+		Altitude:       alt * rad2deg,
+		Azimuth:        norm2Pi(az) * rad2deg,
+		Distance:       dist,
+		Semidiameter:   math.Asin(moonRadiusKm/dist) * rad2deg,
+	}, nil
+}

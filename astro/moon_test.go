@@ -52,3 +52,40 @@ func TestMoonELPMeeus47a(t *testing.T) {
 		t.Errorf("parallax formula gives %.6f°, want 0.991990° (Meeus Example 47.a)", got)
 	}
 }
+
+// TestIlluminationMeeus48a: Meeus, Astronomical Algorithms 2nd ed.,
+// Example 48.a, pp. 346–347 (1992 April 12, 0h TD): from the example's Moon
+// α = 134.6885°, δ = 13.7684°, Δ = 368410 km and Sun α = 20.6579°,
+// δ = 8.6964°, R = 149971520 km, the phase angle is i = 69.0756° and
+// k = 0.6786 (tolerance 1e-4 as in the reference table); the position angle
+// of the bright limb is χ = 285.0° (book value, from memory; 0.1°).
+func TestIlluminationMeeus48a(t *testing.T) {
+	il := illumination(134.6885*deg2rad, 13.7684*deg2rad, 368410, 20.6579*deg2rad, 8.6964*deg2rad, 149971520, (133.167-20.66)*deg2rad)
+	if math.Abs(il.PhaseAngle-69.0756) > 1e-4 || math.Abs(il.Fraction-0.6786) > 1e-4 {
+		t.Errorf("i = %.4f°, k = %.4f; want 69.0756°, 0.6786 (Meeus Example 48.a)", il.PhaseAngle, il.Fraction)
+	}
+	if math.Abs(il.BrightLimb-285.0) > 0.1 {
+		t.Errorf("χ = %.2f°, want 285.0° (Meeus Example 48.a)", il.BrightLimb)
+	}
+	if !il.Waxing {
+		t.Errorf("Moon of 1992 April 12 should be waxing (first quarter was April 10)")
+	}
+}
+
+// TestMoonIlluminationEngine: the full engine at the instant of Example 48.a
+// (0h TD is 1992-04-11 23:59:01 UTC with ΔT ≈ 59 s) must agree with the
+// book's k = 0.6786 to 2e-4 (the book's positions come from the shorter
+// series of ch. 25 and 47).
+func TestMoonIlluminationEngine(t *testing.T) {
+	when, err := TimeFromJulianEphemerisDay(2448724.5)
+	if err != nil {
+		t.Fatal(err)
+	}
+	il, err := MoonIllumination(when)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(il.Fraction-0.6786) > 2e-4 || math.Abs(il.PhaseAngle-69.0756) > 0.02 {
+		t.Errorf("engine: k = %.4f, i = %.4f°; want 0.6786, 69.0756° (Meeus Example 48.a)", il.Fraction, il.PhaseAngle)
+	}
+}

@@ -96,6 +96,7 @@ func Marshal(c *feed.Calendar, opts Options) ([]byte, error) {
 		return nil, err
 	}
 	var b bytes.Buffer
+	b.Grow(4096 + 600*len(c.Entries)) // a typical event takes 400 to 600 bytes
 	if err := cal.SerializeTo(&b, ics.WithNewLineWindows); err != nil {
 		return nil, fmt.Errorf("ical: calendar %q: %w", c.ID, err)
 	}

@@ -3,6 +3,7 @@ package publish
 import (
 	"fmt"
 	"math"
+	"sort"
 	"strconv"
 	"strings"
 	"time"
@@ -50,29 +51,45 @@ type Level struct {
 }
 
 // Above returns how long the Sun stays above a limit during the local day
-// [dayStart, dayEnd), from that day's crossings of the limit: rise is the
-// upward crossing and set the downward one, each zero when the day has none.
-// With neither, up tells whether the Sun stayed above the limit all day
-// (polar day: the whole day) or below it (polar night: 0). A set before the
-// rise (around the start or the end of a polar period) counts both ends of
-// the day.
-func Above(dayStart, dayEnd, rise, set time.Time, up bool) time.Duration {
-	day := dayEnd.Sub(dayStart)
-	switch {
-	case rise.IsZero() && set.IsZero():
-		if up {
-			return day
+// [dayStart, dayEnd), from that day's crossings of the limit: rising are the
+// upward crossings and setting the downward ones, each in any number (none,
+// one, or two near the start or end of a polar period). Whether the Sun is
+// above the limit at dayStart follows from the first crossing; with no
+// crossing at all, alwaysAbove tells whether it stayed above all day (polar
+// day: the whole day) or below (polar night: 0). This matches astro.Day:
+// Above(d.Date, next midnight, d.Rising, d.Setting, d.State == astro.AlwaysAbove).
+func Above(dayStart, dayEnd time.Time, rising, setting []time.Time, alwaysAbove bool) time.Duration {
+	type crossing struct {
+		at time.Time
+		up bool
+	}
+	cs := make([]crossing, 0, len(rising)+len(setting))
+	for _, t := range rising {
+		cs = append(cs, crossing{t, true})
+	}
+	for _, t := range setting {
+		cs = append(cs, crossing{t, false})
+	}
+	if len(cs) == 0 {
+		if alwaysAbove {
+			return dayEnd.Sub(dayStart)
 		}
 		return 0
-	case set.IsZero():
-		return dayEnd.Sub(rise)
-	case rise.IsZero():
-		return set.Sub(dayStart)
-	case rise.Before(set):
-		return set.Sub(rise)
-	default:
-		return set.Sub(dayStart) + dayEnd.Sub(rise)
 	}
+	sort.Slice(cs, func(i, j int) bool { return cs[i].at.Before(cs[j].at) })
+	above := !cs[0].up // above at the start if the first crossing goes down
+	from := dayStart
+	var total time.Duration
+	for _, c := range cs {
+		if above {
+			total += c.at.Sub(from)
+		}
+		above, from = c.up, c.at
+	}
+	if above {
+		total += dayEnd.Sub(from)
+	}
+	return total
 }
 
 // Chart geometry, in SVG user units.
@@ -109,6 +126,7 @@ type tickView struct {
 
 type markView struct {
 	X, Y1, Y2, TY string
+	Anchor        string // text-anchor of the label: kept inside the chart
 	Label         string
 }
 
@@ -252,8 +270,15 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 			row = 0
 		}
 		lastX = x
+		anchor, half := "middle", 2.8*float64(len([]rune(m.Label))) // about 5.6 units a character at 10 px
+		switch {
+		case x+half > chartW-2:
+			anchor = "end"
+		case x-half < 2:
+			anchor = "start"
+		}
 		v.Marks = append(v.Marks, markView{X: num(x), Y1: num(plotTop - 2 - 12*float64(row)), Y2: num(plotBottom),
-			TY: num(plotTop - 6 - 12*float64(row)), Label: m.Label})
+			TY: num(plotTop - 6 - 12*float64(row)), Anchor: anchor, Label: m.Label})
 	}
 	for _, lv := range c.Levels {
 		h := clipHours(lv.Length)

@@ -200,8 +200,7 @@ figcaption{font-size:.9rem;color:#444}
 svg{max-width:100%;height:auto;display:block}
 svg text{font:10px system-ui,sans-serif;fill:#333}
 svg .yl{text-anchor:end}
-svg .ll{text-anchor:end;fill:#1d2030}
-svg .ml{text-anchor:middle}
+svg .ll{text-anchor:end;fill:#1d2030;paint-order:stroke;stroke:#fbfaf6;stroke-width:3px}
 .night{fill:#1d2545}
 .astro{fill:#2f3e6e}
 .naut{fill:#4d659e}
@@ -236,7 +235,7 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.</p>
 {{end}}{{range .Hours}}<line class="grid" x1="44" x2="744" y1="{{.Y}}" y2="{{.Y}}"/><text class="yl" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>
 {{end}}{{range .Months}}<line class="tick" x1="{{.X}}" x2="{{.X}}" y1="270" y2="275"/><text x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>
 {{end}}{{range .Levels}}<line class="level" x1="44" x2="744" y1="{{.Y}}" y2="{{.Y}}"/><text class="ll" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>
-{{end}}{{range .Marks}}<line class="mark" x1="{{.X}}" x2="{{.X}}" y1="{{.Y1}}" y2="{{.Y2}}"/><text class="ml" x="{{.X}}" y="{{.TY}}">{{.Label}}</text>
+{{end}}{{range .Marks}}<line class="mark" x1="{{.X}}" x2="{{.X}}" y1="{{.Y1}}" y2="{{.Y2}}"/><text class="ml" x="{{.X}}" y="{{.TY}}" text-anchor="{{.Anchor}}">{{.Label}}</text>
 {{end}}</svg>
 <figcaption>{{.Summary}} Hours per day with
 <span class="key day"></span>the Sun up,

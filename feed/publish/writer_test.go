@@ -121,22 +121,29 @@ func TestPublishedFilesAreWorldReadable(t *testing.T) {
 	old := syscall.Umask(0o022)
 	defer syscall.Umask(old)
 	dir := t.TempDir()
+	checkModes := func(when string) {
+		t.Helper()
+		for name := range snapshot(t, dir) {
+			fi, err := os.Stat(filepath.Join(dir, name))
+			if err != nil {
+				t.Fatal(err)
+			}
+			if fi.Mode().Perm() != 0o644 {
+				t.Errorf("%s: %s has mode %v, want 0644 (a web server running as another user must read it)", when, name, fi.Mode().Perm())
+			}
+		}
+	}
+	publishTo(t, dir, "", testOptions())
+	checkModes("new files")
 	// A file already holding the right bytes but with CreateTemp's 0600 (a
 	// copy made by hand, or an older tool) is fixed in place.
-	publishTo(t, dir, "", testOptions())
 	if err := os.Chmod(filepath.Join(dir, "feeds.json"), 0o600); err != nil {
 		t.Fatal(err)
 	}
 	publishTo(t, dir, "", testOptions())
-	for name := range snapshot(t, dir) {
-		fi, err := os.Stat(filepath.Join(dir, name))
-		if err != nil {
-			t.Fatal(err)
-		}
-		if fi.Mode().Perm() != 0o644 {
-			t.Errorf("%s has mode %v, want 0644 (a web server running as another user must read it)", name, fi.Mode().Perm())
-		}
-	}
+	checkModes("unchanged files")
+	publishTo(t, dir, " (revised)", testOptions())
+	checkModes("replaced files")
 }
 
 // faultyFile is a real temporary file whose writes fail with err once limit

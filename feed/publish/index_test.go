@@ -1,0 +1,403 @@
+package publish
+
+import (
+	"context"
+	"encoding/xml"
+	"errors"
+	"io"
+	"math"
+	"strconv"
+	"strings"
+	"testing"
+	"time"
+
+	"heliocal/feed"
+)
+
+// element is a parsed XML element with its text, for looking things up.
+type element struct {
+	Name     string
+	Attr     map[string]string
+	Text     string
+	Children []*element
+}
+
+// parseStrict parses a document as strict XML: every element closed, every
+// entity known, attributes quoted. The index page is written to pass this.
+func parseStrict(t *testing.T, data []byte) *element {
+	t.Helper()
+	d := xml.NewDecoder(strings.NewReader(string(data)))
+	d.Strict = true
+	root := &element{Name: "#document"}
+	stack := []*element{root}
+	for {
+		tok, err := d.Token()
+		if errors.Is(err, io.EOF) {
+			break
+		}
+		if err != nil {
+			line, col := d.InputPos()
+			t.Fatalf("not well-formed at %d:%d: %v", line, col, err)
+		}
+		top := stack[len(stack)-1]
+		switch tok := tok.(type) {
+		case xml.StartElement:
+			e := &element{Name: tok.Name.Local, Attr: map[string]string{}}
+			for _, a := range tok.Attr {
+				e.Attr[a.Name.Local] = a.Value
+			}
+			top.Children = append(top.Children, e)
+			stack = append(stack, e)
+		case xml.EndElement:
+			stack = stack[:len(stack)-1]
+		case xml.CharData:
+			top.Text += string(tok)
+		}
+	}
+	if len(stack) != 1 {
+		t.Fatalf("%d elements left open", len(stack)-1)
+	}
+	return root
+}
+
+func (e *element) all(name string) []*element {
+	var out []*element
+	var walk func(*element)
+	walk = func(x *element) {
+		for _, c := range x.Children {
+			if c.Name == name {
+				out = append(out, c)
+			}
+			walk(c)
+		}
+	}
+	walk(e)
+	return out
+}
+
+func (e *element) text() string {
+	s := e.Text
+	for _, c := range e.Children {
+		s += c.text()
+	}
+	return s
+}
+
+func renderIndexFor(t *testing.T, opts RenderOptions, cals []*feed.Calendar) []byte {
+	t.Helper()
+	b, err := Render(context.Background(), Calendars(cals...), opts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	f := b.File(IndexName)
+	if f == nil || f.ContentType != ContentTypeHTML {
+		t.Fatalf("no index.html in the bundle: %+v", f)
+	}
+	return f.Data
+}
+
+func TestIndexPage(t *testing.T) {
+	cals := testCalendars(t, "")
+	cals[0].Title = `Sunrise & "first light" <b>`
+	opts := testOptions()
+	opts.Charts = func(_ context.Context, s feed.Site) (*SiteChart, error) { return usnoChart(t, s), nil }
+	page := renderIndexFor(t, opts, cals)
+	doc := parseStrict(t, page)
+	html := string(page)
+
+	if strings.Contains(html, "<script") || strings.Contains(html, `src="http`) || strings.Contains(html, `<link `) {
+		t.Error("the page loads a script or an external asset")
+	}
+	if !strings.Contains(html, "Sunrise &amp; &#34;first light&#34; &lt;b&gt;") {
+		t.Error("the feed title is not escaped")
+	}
+	// Both link kinds for every feed.
+	var https, webcal []string
+	for _, a := range doc.all("a") {
+		switch h := a.Attr["href"]; {
+		case strings.HasPrefix(h, "https://sky.example.org/cal/"):
+			https = append(https, h)
+		case strings.HasPrefix(h, "webcal://sky.example.org/cal/"):
+			webcal = append(webcal, h)
+		}
+	}
+	if len(https) != 3 || len(webcal) != 3 {
+		t.Errorf("links: https %v, webcal %v; want 3 of each", https, webcal)
+	}
+	if !contains(webcal, "webcal://sky.example.org/cal/ice-camp-sun.ics") {
+		t.Errorf("webcal links %v", webcal)
+	}
+	// Grouped by site, with name, coordinates and zone.
+	sections := doc.all("section")
+	if len(sections) != 2 {
+		t.Fatalf("%d site sections, want 2", len(sections))
+	}
+	first := sections[0].text()
+	for _, s := range []string{"Cayuga Ridge Orchard", "42.4500° N, 76.5000° W", "America/New_York", "orchard-sunrise", "orchard-sunset"} {
+		if !strings.Contains(first, s) {
+			t.Errorf("orchard section lacks %q", s)
+		}
+	}
+	if strings.Contains(first, "ice-camp-sun") {
+		t.Error("the ice camp's feed is listed under the orchard")
+	}
+	if got := len(doc.all("svg")); got != 2 {
+		t.Errorf("%d charts, want one per site", got)
+	}
+	// The caution, whole.
+	var caution string
+	for _, a := range doc.all("aside") {
+		caution += a.text()
+	}
+	for _, s := range []string{"not official", "hunting hours", "aviation night", "lighting-up times", "local regulations", "Never look at the Sun"} {
+		if !strings.Contains(caution, s) {
+			t.Errorf("caution lacks %q", s)
+		}
+	}
+
+	// Without a base URL: relative links, and no webcal (it needs a host).
+	opts.BaseURL = ""
+	doc = parseStrict(t, renderIndexFor(t, opts, cals))
+	for _, a := range doc.all("a") {
+		h := a.Attr["href"]
+		if strings.Contains(h, "://") || strings.HasPrefix(h, "webcal:") {
+			t.Errorf("link %q without a base URL", h)
+		}
+	}
+	if !contains(hrefs(doc), "orchard-sunrise.ics") {
+		t.Errorf("no relative link to orchard-sunrise.ics in %v", hrefs(doc))
+	}
+}
+
+func hrefs(doc *element) []string {
+	var out []string
+	for _, a := range doc.all("a") {
+		out = append(out, a.Attr["href"])
+	}
+	return out
+}
+
+func contains(list []string, s string) bool {
+	for _, x := range list {
+		if x == s {
+			return true
+		}
+	}
+	return false
+}
+
+// usnoChart is a year's chart built with Above from the USNO rows of site s
+// (only the dates the table lists; enough for the shape of the chart).
+func usnoChart(t *testing.T, s feed.Site) *SiteChart {
+	t.Helper()
+	type day struct {
+		rise, set   time.Time
+		up, hasRows bool
+	}
+	days := map[time.Time]*day{}
+	for _, r := range loadUSNO(t) {
+		if r.Lat != s.Latitude {
+			continue
+		}
+		d := days[r.Date]
+		if d == nil {
+			d = &day{}
+			days[r.Date] = d
+		}
+		switch r.Kind {
+		case "sunrise":
+			d.rise = r.At
+		case "sunset":
+			d.set = r.At
+		case "polar_day":
+			d.up = true
+		}
+	}
+	c := &SiteChart{
+		Marks:  []Mark{{At: time.Date(2015, 3, 20, 22, 45, 0, 0, time.UTC), Label: "March equinox"}},
+		Levels: []Level{{Length: 12 * time.Hour, Label: "12 h photoperiod"}},
+	}
+	first := time.Date(2015, 1, 1, 0, 0, 0, 0, time.UTC)
+	for d := first; d.Year() == 2015; d = d.AddDate(0, 0, 1) {
+		cd := ChartDay{Date: d}
+		if x := days[d]; x != nil {
+			start := time.Date(d.Year(), d.Month(), d.Day(), 0, 0, 0, 0, s.Location)
+			end := start.AddDate(0, 0, 1)
+			var rising, setting []time.Time
+			if !x.rise.IsZero() {
+				rising = append(rising, x.rise)
+			}
+			if !x.set.IsZero() {
+				setting = append(setting, x.set)
+			}
+			cd.Daylight = Above(start, end, rising, setting, x.up)
+			cd.Civil, cd.Nautical, cd.Astronomical = cd.Daylight, cd.Daylight, cd.Daylight
+		}
+		c.Days = append(c.Days, cd)
+	}
+	return c
+}
+
+// Day lengths at 80° N, 0° in 2015 from the USNO one-year table 'Rise and
+// Set for the Sun' (Universal Time), rows of testdata/usno-sun-2015.csv.
+func TestAboveUSNO80North(t *testing.T) {
+	tests := []struct {
+		ids  string
+		date string
+		want time.Duration
+	}{
+		{"sun-0163/0164", "2015-03-20", 12*time.Hour + 30*time.Minute}, // 05:55 to 18:25
+		{"sun-0167/0168", "2015-04-13", 23*time.Hour + 2*time.Minute},  // rises 00:58, no set
+		{"sun-0169", "2015-04-14", 24 * time.Hour},                     // **** (polar day)
+		{"sun-0171/0172", "2015-08-30", 23*time.Hour + 1*time.Minute},  // no rise, sets 23:01
+		{"sun-0173/0174", "2015-08-31", 21*time.Hour + 33*time.Minute}, // 01:02 to 22:35
+		{"sun-0179/0180", "2015-10-21", 1*time.Hour + 22*time.Minute},  // 11:02 to 12:24
+		{"sun-0182", "2015-12-21", 0},                                  // ---- (polar night)
+	}
+	_, camp := testSites(t)
+	chart := usnoChart(t, camp)
+	for _, tc := range tests {
+		d, _ := time.Parse("2006-01-02", tc.date)
+		got := chart.Days[d.YearDay()-1]
+		if got.Daylight != tc.want {
+			t.Errorf("USNO %s, %s: Above = %v, want %v", tc.ids, tc.date, got.Daylight, tc.want)
+		}
+	}
+	// A set before the rise counts both ends of the day.
+	d0 := time.Date(2015, 8, 30, 0, 0, 0, 0, time.UTC)
+	if got := Above(d0, d0.Add(24*time.Hour), []time.Time{d0.Add(2 * time.Hour)}, []time.Time{d0.Add(time.Hour)}, false); got != 23*time.Hour {
+		t.Errorf("set 01:00, rise 02:00: %v, want 23h", got)
+	}
+	// Two sets and a rise in one day (the Sun dips below the limit around
+	// local midnight at the end of a polar day): above 00:00-00:30 and
+	// 02:00-23:40.
+	if got := Above(d0, d0.Add(24*time.Hour), []time.Time{d0.Add(2 * time.Hour)},
+		[]time.Time{d0.Add(30 * time.Minute), d0.Add(23*time.Hour + 40*time.Minute)}, false); got != 22*time.Hour+10*time.Minute {
+		t.Errorf("two sets and a rise: %v, want 22h10m", got)
+	}
+}
+
+// polygonYs returns the y of each interior point of a band polygon, by x.
+func polygonPoints(t *testing.T, pts string) [][2]float64 {
+	t.Helper()
+	var out [][2]float64
+	for _, p := range strings.Fields(pts) {
+		x, y, ok := strings.Cut(p, ",")
+		if !ok {
+			t.Fatalf("bad point %q", p)
+		}
+		fx, err1 := strconv.ParseFloat(x, 64)
+		fy, err2 := strconv.ParseFloat(y, 64)
+		if err1 != nil || err2 != nil {
+			t.Fatalf("bad point %q", p)
+		}
+		out = append(out, [2]float64{fx, fy})
+	}
+	return out
+}
+
+// The chart of a polar site: the daylight band reaches the top (24 h) on a
+// polar day and the bottom (0 h) in the polar night, never beyond the plot.
+func TestChartPolarDayAndNight(t *testing.T) {
+	_, camp := testSites(t)
+	c := usnoChart(t, camp)
+	// Give the polar stretch its real extent: USNO marks 14 April as ****
+	// and 21 December as ----; fill the weeks around them the same way.
+	for i := range c.Days {
+		d := c.Days[i].Date
+		switch {
+		case d.After(time.Date(2015, 4, 14, 0, 0, 0, 0, time.UTC)) && d.Before(time.Date(2015, 8, 29, 0, 0, 0, 0, time.UTC)):
+			c.Days[i].Daylight, c.Days[i].Civil = 24*time.Hour, 25*time.Hour // over 24 h is clipped
+		case d.After(time.Date(2015, 10, 26, 0, 0, 0, 0, time.UTC)) || d.Before(time.Date(2015, 2, 15, 0, 0, 0, 0, time.UTC)):
+			c.Days[i].Daylight, c.Days[i].Civil = 0, -time.Hour // below 0 is clipped
+		}
+	}
+	opts := testOptions()
+	opts.Charts = func(_ context.Context, s feed.Site) (*SiteChart, error) {
+		if s.ID == camp.ID {
+			return c, nil
+		}
+		return nil, nil // no chart for the other site
+	}
+	doc := parseStrict(t, renderIndexFor(t, opts, testCalendars(t, "")))
+	svgs := doc.all("svg")
+	if len(svgs) != 1 {
+		t.Fatalf("%d charts, want 1 (the other site has none)", len(svgs))
+	}
+	svg := svgs[0]
+	if svg.Attr["viewBox"] != "0 0 760 300" {
+		t.Errorf("viewBox %q", svg.Attr["viewBox"])
+	}
+	var day []*element
+	for _, p := range svg.all("polygon") {
+		if p.Attr["class"] == "day" {
+			day = append(day, p)
+		}
+		for _, pt := range polygonPoints(t, p.Attr["points"]) {
+			if pt[0] < plotLeft || pt[0] > plotLeft+plotW || pt[1] < plotTop || pt[1] > plotBottom {
+				t.Errorf("%s band point %v outside the plot", p.Attr["class"], pt)
+			}
+		}
+	}
+	if len(day) != 1 {
+		t.Fatalf("%d daylight bands", len(day))
+	}
+	pts := polygonPoints(t, day[0].Attr["points"])
+	step := float64(plotW) / float64(len(c.Days))
+	yAt := func(date time.Time) float64 {
+		// the band's point nearest the middle of that day
+		x := plotLeft + (float64(date.YearDay()-1)+0.5)*step
+		best := pts[0]
+		for _, p := range pts[1:] {
+			if math.Abs(p[0]-x) < math.Abs(best[0]-x) {
+				best = p
+			}
+		}
+		if math.Abs(best[0]-x) > step/2 {
+			// a plateau reduced to its ends: the band is flat there
+			for i := 1; i < len(pts); i++ {
+				if a, b := pts[i-1], pts[i]; a[0] <= x && x <= b[0] && a[1] == b[1] {
+					return a[1]
+				}
+			}
+			t.Fatalf("no band point at %v", date)
+		}
+		return best[1]
+	}
+	check := func(date string, want float64) {
+		d, _ := time.Parse("2006-01-02", date)
+		if got := yAt(d); math.Abs(got-want) > 0.1 {
+			t.Errorf("%s: daylight band top at y=%.1f, want %.1f", date, got, want)
+		}
+	}
+	check("2015-06-21", plotTop)    // polar day: 24 h
+	check("2015-04-14", plotTop)    // USNO ****
+	check("2015-12-21", plotBottom) // polar night: 0 h
+	check("2015-01-10", plotBottom)
+	check("2015-03-20", plotBottom-12.5*plotH/24) // 12 h 30 min
+
+	text := svg.text()
+	for _, s := range []string{"Day length and twilight at Driftwood Ice Camp <North>, 2015", "March equinox", "12 h photoperiod",
+		"The Sun stays up all day on", "It stays down all day on"} {
+		if !strings.Contains(text, s) {
+			t.Errorf("chart text lacks %q", s)
+		}
+	}
+	// The equinox mark is drawn at its date, the 12 h level at 12 h.
+	var markX, levelY string
+	for _, l := range svg.all("line") {
+		switch l.Attr["class"] {
+		case "mark":
+			markX = l.Attr["x1"]
+		case "level":
+			levelY = l.Attr["y1"]
+		}
+	}
+	wantX := plotLeft + float64(plotW)*(78+22.75/24)/365
+	if x, _ := strconv.ParseFloat(markX, 64); math.Abs(x-wantX) > 0.1 {
+		t.Errorf("equinox mark at x=%s, want %.1f", markX, wantX)
+	}
+	if levelY != num(plotBottom-12*plotH/24) {
+		t.Errorf("12 h level at y=%s", levelY)
+	}
+}

@@ -1,0 +1,144 @@
+package publish
+
+import (
+	"bytes"
+	"context"
+	"fmt"
+	"os"
+	"path/filepath"
+	"testing"
+)
+
+func TestShardsPartitionFeeds(t *testing.T) {
+	ids := make([]string, 2000)
+	for i := range ids {
+		ids[i] = fmt.Sprintf("site-%04d-sun", i)
+	}
+	for n := 1; n <= 16; n++ {
+		count := make([]int, n)
+		for _, id := range ids {
+			in := 0
+			for i := range n {
+				if InShard(id, i, n) {
+					in++
+					count[i]++
+				}
+			}
+			if in != 1 {
+				t.Fatalf("n=%d: %s is in %d shards, want exactly 1", n, id, in)
+			}
+		}
+		// FNV-1a spreads similar ids: no shard gets less than half or more
+		// than twice its share.
+		for i, c := range count {
+			if share := len(ids) / n; c < share/2 || c > 2*share {
+				t.Errorf("n=%d: shard %d has %d of %d ids", n, i, c, len(ids))
+			}
+		}
+	}
+	// The assignment depends on the id alone.
+	if InShard("farm-sun", 0, 4) != (Shard{0, 4}).Has("farm-sun") || !(Shard{}).Has("anything") {
+		t.Error("Shard.Has disagrees with InShard")
+	}
+}
+
+func TestParseShard(t *testing.T) {
+	good := []struct {
+		in   string
+		want Shard
+	}{
+		{"0/1", Shard{0, 1}}, {"0/4", Shard{0, 4}}, {"3/4", Shard{3, 4}}, {" 2/8 ", Shard{2, 8}},
+	}
+	for _, tc := range good {
+		got, err := ParseShard(tc.in)
+		if err != nil || got != tc.want {
+			t.Errorf("ParseShard(%q) = %v, %v; want %v", tc.in, got, err, tc.want)
+		}
+		if got.String() != fmt.Sprintf("%d/%d", tc.want.Index, tc.want.Count) {
+			t.Errorf("%v.String() = %q", got, got.String())
+		}
+	}
+	bad := []struct{ in, want string }{
+		{"4/4", `publish: shard "4/4": index must be within 0..3 (0-based, like JOB_COMPLETION_INDEX)`},
+		{"-1/4", `publish: shard "-1/4": index must be within 0..3 (0-based, like JOB_COMPLETION_INDEX)`},
+		{"1/0", `publish: shard "1/0": count must be at least 1`},
+		{"3", `publish: shard "3": want i/n, e.g. "0/4" (i is 0-based)`},
+		{"a/4", `publish: shard "a/4": index "a" is not a whole number`},
+		{"1/four", `publish: shard "1/four": count "four" is not a whole number`},
+		{"", `publish: shard "": want i/n, e.g. "0/4" (i is 0-based)`},
+	}
+	for _, tc := range bad {
+		if _, err := ParseShard(tc.in); err == nil || err.Error() != tc.want {
+			t.Errorf("ParseShard(%q): error %v\nwant %s", tc.in, err, tc.want)
+		}
+	}
+}
+
+// A fleet of three workers sharing one volume ends with the same feeds,
+// feeds.json and index.html as one unsharded run; the index appears only when
+// the last shard is done, and a rerun of any shard changes nothing.
+func TestShardedPublishMergesIndex(t *testing.T) {
+	whole := t.TempDir()
+	publishTo(t, whole, "", testOptions())
+	want := snapshot(t, whole)
+
+	dir := t.TempDir()
+	const n = 3
+	// Publish the shards in an order where the last one is not shard n-1.
+	order := []int{2, 0, 1}
+	for k, i := range order {
+		opts := testOptions()
+		opts.Shard = Shard{Index: i, Count: n}
+		st := publishTo(t, dir, "", opts)
+		last := k == len(order)-1
+		if _, err := os.Stat(filepath.Join(dir, IndexName)); (err == nil) != last {
+			t.Fatalf("after shard %d (%d of %d done): index.html present = %v", i, k+1, n, err == nil)
+		}
+		wantIndex := IndexPending
+		if last {
+			wantIndex = IndexWritten
+		}
+		if st.Index != wantIndex || st.Shard != opts.Shard {
+			t.Errorf("shard %d: Index %q, Shard %v; want %q", i, st.Index, st.Shard, wantIndex)
+		}
+	}
+	got := snapshot(t, dir)
+	for name, b := range want {
+		if !bytes.Equal(got[name], b) {
+			t.Errorf("%s differs between the sharded and the unsharded run", name)
+		}
+	}
+	for i := range n {
+		if _, ok := got[ManifestName(Shard{i, n})]; !ok {
+			t.Errorf("manifest of shard %d missing", i)
+		}
+	}
+	feeds := 0
+	for i := range n {
+		opts := testOptions()
+		opts.Shard = Shard{Index: i, Count: n}
+		st := publishTo(t, dir, "", opts)
+		feeds += st.Feeds
+		if st.FilesWritten != 0 || st.Index != IndexUnchanged {
+			t.Errorf("rerun of shard %d wrote something: %+v", i, st)
+		}
+	}
+	if feeds != 3 {
+		t.Errorf("the shards published %d feeds in all, want 3", feeds)
+	}
+
+	// Manifests of another configuration (a feed added) are not merged.
+	srcs := Calendars(testCalendars(t, "")...)
+	extra := *testCalendars(t, "")[0]
+	extra.ID = "orchard-dawn"
+	srcs = append(srcs, Calendars(&extra)...)
+	opts := testOptions()
+	opts.Shard = Shard{Index: 0, Count: n}
+	st, err := Publish(context.Background(), srcs, opts, &Writer{Dir: dir})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if st.Index != IndexPending {
+		t.Errorf("shard 0 of a changed configuration merged old manifests: %+v", st)
+	}
+}

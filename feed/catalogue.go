@@ -254,7 +254,7 @@ func (w *entryWriter) event(spec config.KindSpec, e Event) {
 func (w *entryWriter) note(n Note) {
 	title, desc := describeNote(w.site, n)
 	key := "note|" + n.Family + "|" + n.Date.Format(time.DateOnly)
-	if w.seen[key] > 0 {
+	if w.seen[w.feedID+"|"+key] > 0 {
 		return // the same state from a sibling kind (sunrise and sunset)
 	}
 	w.out = append(w.out, Entry{

@@ -134,15 +134,30 @@ func categories(k config.Kind) []string {
 	return []string{family, name}
 }
 
-// offsetTitle names a shifted event: "30 m before sunrise".
+// offsetTitle names a shifted event: "30 min before sunrise",
+// "1 h 15 min after sunset".
 func offsetTitle(offset time.Duration, title string) string {
 	word := "after"
 	if offset < 0 {
 		word, offset = "before", -offset
 	}
-	amount := strings.TrimSuffix(strings.TrimSuffix(offset.String(), "0s"), "0m")
-	amount = strings.NewReplacer("h", " h ", "m", " min", "s", " s").Replace(amount)
-	return strings.TrimSpace(strings.Join(strings.Fields(amount), " ")) + " " + word + " " + strings.ToLower(title[:1]) + title[1:]
+	return amount(offset) + " " + word + " " + strings.ToLower(title[:1]) + title[1:]
+}
+
+// amount writes a duration in words: "30 min", "1 h", "1 h 15 min", "45 s".
+func amount(d time.Duration) string {
+	h, m, s := int(d/time.Hour), int(d%time.Hour/time.Minute), int(d%time.Minute/time.Second)
+	var parts []string
+	if h > 0 {
+		parts = append(parts, fmt.Sprintf("%d h", h))
+	}
+	if m > 0 {
+		parts = append(parts, fmt.Sprintf("%d min", m))
+	}
+	if s > 0 || len(parts) == 0 {
+		parts = append(parts, fmt.Sprintf("%d s", s))
+	}
+	return strings.Join(parts, " ")
 }
 
 // describe gives the title and plain-language description of an event.

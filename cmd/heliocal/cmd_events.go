@@ -175,6 +175,11 @@ func runEvents(_ context.Context, g *globals, o *eventsOptions) error {
 	if to.Sub(from) > 10*366*24*time.Hour {
 		return badInput("--to: %s: at most 10 years after --from", to.Format(time.DateOnly))
 	}
+	// two days of margin on each side for the ephemeris and far time zones
+	if lo, hi := astro.MinTime.AddDate(0, 0, 3), astro.MaxTime.AddDate(0, 0, -4); from.Before(lo) || to.After(hi) {
+		return badInput("--from/--to: %s..%s: outside the supported dates %s..%s", from.Format(time.DateOnly),
+			to.Format(time.DateOnly), lo.Format(time.DateOnly), hi.Format(time.DateOnly))
+	}
 	kinds, err := parseKinds(o.kinds)
 	if err != nil {
 		return err
@@ -368,7 +373,7 @@ func stateText(s astro.State) string {
 func details(e *feed.Event, loc *time.Location) string {
 	var parts []string
 	if !e.End.IsZero() {
-		parts = append(parts, fmt.Sprintf("until %s (%s)", e.End.In(loc).Format("15:04:05"), e.End.Sub(e.Start).Round(time.Minute)))
+		parts = append(parts, fmt.Sprintf("until %s (%s)", e.End.In(loc).Format("15:04:05"), words(e.End.Sub(e.Start).Round(time.Minute))))
 	}
 	if e.Part != "" {
 		parts = append(parts, e.Part)
@@ -378,7 +383,7 @@ func details(e *feed.Event, loc *time.Location) string {
 	}
 	switch e.Kind.Name {
 	case "sunrise", "sunset", "photoperiod":
-		parts = append(parts, "day length "+e.DayLength.Round(time.Second).String())
+		parts = append(parts, "day length "+words(e.DayLength.Round(time.Second)))
 	case "solar-noon", "moon-transit":
 		parts = append(parts, fmt.Sprintf("altitude %.2f°", e.Altitude))
 	case "perihelion", "aphelion":
@@ -388,4 +393,20 @@ func details(e *feed.Event, loc *time.Location) string {
 		parts = append(parts, fmt.Sprintf("%.0f%% lit", e.Illuminated*100))
 	}
 	return strings.Join(parts, ", ")
+}
+
+// words writes a duration as "1 h 16 min" or "8 h 31 min 23 s".
+func words(d time.Duration) string {
+	h, m, s := int(d/time.Hour), int(d%time.Hour/time.Minute), int(d%time.Minute/time.Second)
+	var parts []string
+	if h > 0 {
+		parts = append(parts, fmt.Sprintf("%d h", h))
+	}
+	if m > 0 || (h > 0 && s > 0) {
+		parts = append(parts, fmt.Sprintf("%d min", m))
+	}
+	if s > 0 || len(parts) == 0 {
+		parts = append(parts, fmt.Sprintf("%d s", s))
+	}
+	return strings.Join(parts, " ")
 }

@@ -1,0 +1,194 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"encoding/json"
+	"flag"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+	"time"
+)
+
+var update = flag.Bool("update", false, "rewrite golden files")
+
+// noEnv is an empty environment, so the host's HELIOCAL_ variables do not
+// leak into tests.
+func noEnv(string) (string, bool) { return "", false }
+
+func runCLI(t *testing.T, args ...string) (int, string, string) {
+	t.Helper()
+	var out, errOut bytes.Buffer
+	code := run(context.Background(), args, &out, &errOut, noEnv)
+	return code, out.String(), errOut.String()
+}
+
+// The events table of a demo site over a fixed week is compared with a
+// golden file; regenerate with `go test ./cmd/heliocal -update` and review
+// the diff.
+func TestEventsTableGolden(t *testing.T) {
+	code, out, errOut := runCLI(t, "events", "--site", "fernhollow", "--from", "2027-03-26", "--to", "2027-03-29",
+		"--kinds", "sunrise,sunset,solar-noon,civil-dawn,civil-dusk,golden-hour,march-equinox")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	golden := filepath.Join("..", "..", "testdata", "golden", "events-table.txt")
+	if *update {
+		if err := os.MkdirAll(filepath.Dir(golden), 0o755); err != nil {
+			t.Fatal(err)
+		}
+		if err := os.WriteFile(golden, []byte(out), 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	want, err := os.ReadFile(golden)
+	if err != nil {
+		t.Fatalf("%v (run with -update to create it)", err)
+	}
+	if out != string(want) {
+		got := golden + ".got"
+		_ = os.WriteFile(got, []byte(out), 0o644)
+		gl, wl := strings.Split(out, "\n"), strings.Split(string(want), "\n")
+		for i := 0; i < len(gl) && i < len(wl); i++ {
+			if gl[i] != wl[i] {
+				t.Fatalf("%s:%d differs (output in %s):\n got: %s\nwant: %s", golden, i+1, got, gl[i], wl[i])
+			}
+		}
+		t.Fatalf("%s: %d lines, want %d (output in %s)", golden, len(gl), len(wl), got)
+	}
+	// The clock change of 28 March 2027 (EU rule: last Sunday of March) shows in the zone column.
+	if !strings.Contains(out, "CET") || !strings.Contains(out, "CEST") {
+		t.Error("table does not switch from CET to CEST")
+	}
+}
+
+// The JSON form: one object per event with kind and an RFC 3339 UTC start,
+// sorted by time; spans have an end; custom thresholds have a direction.
+func TestEventsJSON(t *testing.T) {
+	code, out, errOut := runCLI(t, "events", "--lat", "48.2", "--lon", "16.4", "--elev", "180", "--tz", "Europe/Vienna",
+		"--from", "2027-01-01", "--to", "2027-01-10", "--kinds", "sunrise,sunset,golden-hour,sun-altitude:10,perihelion", "--format", "json")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	var doc struct {
+		Events []struct {
+			Kind, Start, End, Direction string
+		}
+	}
+	if err := json.Unmarshal([]byte(out), &doc); err != nil {
+		t.Fatal(err)
+	}
+	// 10 days × (sunrise + sunset + 2 golden hours + 2 crossings of 10°) + perihelion
+	if len(doc.Events) != 61 {
+		t.Errorf("%d events, want 61", len(doc.Events))
+	}
+	var prev time.Time
+	for _, e := range doc.Events {
+		start, err := time.Parse(time.RFC3339, e.Start)
+		if err != nil || !strings.HasSuffix(e.Start, "Z") {
+			t.Fatalf("start %q is not RFC 3339 UTC", e.Start)
+		}
+		if start.Before(prev) {
+			t.Errorf("%s %s before the previous event", e.Kind, e.Start)
+		}
+		prev = start
+		switch e.Kind {
+		case "golden-hour":
+			if e.End == "" {
+				t.Error("golden-hour without end")
+			}
+		case "sun-altitude:10":
+			if e.Direction != "rising" && e.Direction != "setting" {
+				t.Errorf("sun-altitude direction %q", e.Direction)
+			}
+		}
+	}
+}
+
+// Exit codes: 2 for bad input, each message naming the flag or field and
+// the value.
+func TestEventsBadInput(t *testing.T) {
+	for _, tc := range []struct {
+		name string
+		args []string
+		want string
+	}{
+		{"latitude", []string{"events", "--lat", "95", "--lon", "0"}, "--lat: 95"},
+		{"longitude", []string{"events", "--lat", "0", "--lon", "-200"}, "--lon: -200"},
+		{"zone", []string{"events", "--lat", "0", "--lon", "0", "--tz", "Mars/Olympus"}, "Mars/Olympus"},
+		{"kind", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "sunrize"}, "sunrize"},
+		{"date", []string{"events", "--lat", "0", "--lon", "0", "--from", "2027-13-01"}, "--from: \"2027-13-01\""},
+		{"order", []string{"events", "--lat", "0", "--lon", "0", "--from", "2027-02-01", "--to", "2027-01-01"}, "--to"},
+		{"range", []string{"events", "--lat", "0", "--lon", "0", "--from", "1700-01-01", "--to", "1700-01-02"}, "1700"},
+		{"format", []string{"events", "--lat", "0", "--lon", "0", "--format", "xml"}, "--format: \"xml\""},
+		{"site", []string{"events", "--site", "nowhere"}, "nowhere"},
+		{"flag", []string{"events", "--latitude", "1"}, "latitude"},
+		{"config", []string{"check", "--config", filepath.Join("..", "..", "testdata", "config", "bad-latitude.yaml")}, "latitude"},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			code, _, errOut := runCLI(t, tc.args...)
+			if code != exitInput {
+				t.Errorf("exit %d, want %d (%s)", code, exitInput, errOut)
+			}
+			if !strings.Contains(errOut, tc.want) {
+				t.Errorf("message %q does not name %q", errOut, tc.want)
+			}
+		})
+	}
+}
+
+func TestVersionAndHelp(t *testing.T) {
+	code, out, _ := runCLI(t, "version")
+	if code != 0 || !strings.HasPrefix(out, "heliocal ") {
+		t.Errorf("version: exit %d, %q", code, out)
+	}
+	for _, cmd := range []string{"events", "check", "publish", "serve", "version"} {
+		code, out, _ := runCLI(t, cmd, "--help")
+		if code != 0 || !strings.Contains(out, "Usage:") {
+			t.Errorf("%s --help: exit %d", cmd, code)
+		}
+	}
+	code, out, _ = runCLI(t, "completion", "bash")
+	if code != 0 || !strings.Contains(out, "heliocal") {
+		t.Errorf("completion bash: exit %d", code)
+	}
+}
+
+// check on the built-in demo: valid, every site and feed listed.
+func TestCheckDemo(t *testing.T) {
+	t.Chdir(t.TempDir()) // no ./heliocal.yaml: the built-in demo
+	code, out, errOut := runCLI(t, "check")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	for _, w := range []string{"built-in demo", "fernhollow", "tallowgum", "skarvlia", "cairnmoor-night"} {
+		if !strings.Contains(out, w) {
+			t.Errorf("check output lacks %q:\n%s", w, out)
+		}
+	}
+}
+
+// publish with no flags on a fresh directory publishes the demo; a second
+// run writes nothing.
+func TestPublishDemoTwice(t *testing.T) {
+	dir := t.TempDir()
+	t.Chdir(dir)
+	code, _, errOut := runCLI(t, "publish")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	for _, name := range []string{"index.html", "feeds.json", "fernhollow-sun.ics", "tallowgum-sun.ics"} {
+		if _, err := os.Stat(filepath.Join(dir, "public", name)); err != nil {
+			t.Error(err)
+		}
+	}
+	code, _, errOut = runCLI(t, "publish")
+	if code != 0 {
+		t.Fatalf("second run: exit %d: %s", code, errOut)
+	}
+	if !strings.Contains(errOut, " 0 written") {
+		t.Errorf("second run rewrote files: %s", errOut)
+	}
+}

@@ -1,0 +1,360 @@
+package feed
+
+import (
+	"strings"
+	"testing"
+	"time"
+
+	"heliocal/astro"
+	"heliocal/config"
+)
+
+func date(s string) time.Time {
+	t, err := time.Parse(time.DateOnly, s)
+	if err != nil {
+		panic(err)
+	}
+	return t
+}
+
+func mustKinds(t *testing.T, names ...string) []config.Kind {
+	t.Helper()
+	var ks []config.Kind
+	for _, n := range names {
+		k, err := config.ParseKind(n)
+		if err != nil {
+			t.Fatal(err)
+		}
+		ks = append(ks, k)
+	}
+	return ks
+}
+
+func site(t *testing.T, id string, lat, lon float64, zone string) *config.Site {
+	t.Helper()
+	s := &config.Site{ID: id, Name: id, Latitude: lat, Longitude: lon}
+	if err := s.TimeZone.UnmarshalText([]byte(zone)); err != nil {
+		t.Fatal(err)
+	}
+	return s
+}
+
+func sky(t *testing.T, first, last string) *Sky {
+	t.Helper()
+	s, err := NewSky(date(first), date(last))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return s
+}
+
+// The USNO tables list an event under the date on which it falls in the
+// table's zone: at 29° N 81° W in UT the sunset of the evening of 14 May 2019
+// falls at 00:08 UT and is listed on 15 May, together with the sunrise of 15
+// May at 10:33 UT. Source: USNO one-year table 'Rise and Set for the Sun',
+// 29 00 N 81 00 W, Universal Time, 2019 (rows sun-0195, sun-0196);
+// tolerance: the table's minute rounding (±1 min).
+func TestEventsGroupedByLocalDate(t *testing.T) {
+	s := site(t, "usno-29n81w", 29, -81, "UTC")
+	sk := sky(t, "2019-05-14", "2019-05-16")
+	events, notes, err := sk.Events(PlaceOf(s), mustKinds(t, "sunrise", "sunset"), date("2019-05-15"), date("2019-05-15"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(notes) != 0 {
+		t.Errorf("notes = %v, want none (the Sun rises and sets at 29° N)", notes)
+	}
+	want := []struct {
+		kind, utc string
+	}{
+		{"sunset", "2019-05-15T00:08Z"},  // USNO sun-0196 (the evening of 14 May)
+		{"sunrise", "2019-05-15T10:33Z"}, // USNO sun-0195
+	}
+	if len(events) != len(want) {
+		t.Fatalf("got %d events, want %d: %v", len(events), len(want), events)
+	}
+	for i, w := range want {
+		e := events[i]
+		ref, _ := time.Parse("2006-01-02T15:04Z", w.utc)
+		if e.Kind.Name != w.kind || e.Date.Format(time.DateOnly) != "2019-05-15" {
+			t.Errorf("event %d: %s on %s, want %s on 2019-05-15", i, e.Kind, e.Date.Format(time.DateOnly), w.kind)
+		}
+		if d := e.Start.Sub(ref); d < -90*time.Second || d > 90*time.Second {
+			t.Errorf("%s: %s, USNO %s (%v off)", w.kind, e.Start.Format(time.RFC3339), w.utc, d)
+		}
+	}
+}
+
+// At 80° N the Sun stays up all day on 14 April 2015 and down all day on 21
+// December 2015. Source: USNO one-year table 'Rise and Set for the Sun',
+// N80 00 / 000 00, 2015, markers **** and ---- (rows sun-0169, sun-0182).
+func TestPolarStatesBecomeOneNote(t *testing.T) {
+	s := site(t, "usno-80n", 80, 0, "UTC")
+	for _, tc := range []struct {
+		day   string
+		state astro.State
+		title string
+	}{
+		{"2015-04-14", astro.AlwaysAbove, "the Sun does not set today"},
+		{"2015-12-21", astro.AlwaysBelow, "the Sun does not rise today"},
+	} {
+		t.Run(tc.day, func(t *testing.T) {
+			sk := sky(t, tc.day, tc.day)
+			specs := []config.KindSpec{{Kind: mustKinds(t, "sunrise")[0]}, {Kind: mustKinds(t, "sunset")[0]}}
+			entries, err := sk.Entries(s, "polar", specs, date(tc.day), date(tc.day))
+			if err != nil {
+				t.Fatal(err)
+			}
+			if len(entries) != 1 {
+				t.Fatalf("got %d entries, want one all-day note: %+v", len(entries), entries)
+			}
+			e := entries[0]
+			if !e.AllDay || !strings.Contains(e.Title, tc.title) {
+				t.Errorf("entry = %q (all-day %v), want an all-day %q", e.Title, e.AllDay, tc.title)
+			}
+			if !e.Start.Equal(date(tc.day)) || !e.End.Equal(date(tc.day).AddDate(0, 0, 1)) {
+				t.Errorf("all-day span %v..%v, want the date with an exclusive end", e.Start, e.End)
+			}
+		})
+	}
+}
+
+// The astronomical seasons start at the equinoxes and solstices, and they are
+// opposite in the two hemispheres: the March equinox starts spring in the
+// north and autumn in the south (common practice).
+func TestSeasonNamedForHemisphere(t *testing.T) {
+	sk := sky(t, "2027-03-01", "2027-04-01")
+	specs := []config.KindSpec{{Kind: mustKinds(t, "march-equinox")[0]}}
+	for _, tc := range []struct {
+		s    *config.Site
+		want string
+	}{
+		{site(t, "north", 48.2, 16.4, "Europe/Vienna"), "Spring begins"},
+		{site(t, "south", -41.3, 174.8, "Pacific/Auckland"), "Autumn begins"},
+	} {
+		entries, err := sk.Entries(tc.s, "seasons", specs, date("2027-03-01"), date("2027-04-01"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(entries) != 1 {
+			t.Fatalf("%s: %d entries, want 1", tc.s.ID, len(entries))
+		}
+		if !strings.Contains(entries[0].Title, tc.want) {
+			t.Errorf("%s: title %q, want %q", tc.s.ID, entries[0].Title, tc.want)
+		}
+		// The astronomical spring (north) lasts about 92.8 days (common
+		// practice: the seasons are unequal because the orbit is an ellipse).
+		if !strings.Contains(entries[0].Description, "lasts 92 d") {
+			t.Errorf("%s: description %q does not give the season's length of about 92 d 18 h", tc.s.ID, entries[0].Description)
+		}
+	}
+}
+
+// Day length passes 12 h a few days before the March equinox at mid-northern
+// latitudes, because sunrise and sunset are taken at the upper limb with
+// refraction (the "equilux"; common practice, dates from memory: 16–18 March
+// around 48° N).
+func TestPhotoperiodTwelveHours(t *testing.T) {
+	s := site(t, "mid", 48.2, 16.4, "Europe/Vienna")
+	sk := sky(t, "2027-01-01", "2027-12-31")
+	events, _, err := sk.Events(PlaceOf(s), mustKinds(t, "photoperiod:12h"), date("2027-01-01"), date("2027-12-31"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(events) != 2 {
+		t.Fatalf("got %d crossings of 12 h in a year, want 2: %+v", len(events), events)
+	}
+	up, down := events[0], events[1]
+	if up.Direction != astro.Rising || down.Direction != astro.Setting {
+		t.Errorf("directions %v, %v; want rising then setting", up.Direction, down.Direction)
+	}
+	if d := up.Date.Format(time.DateOnly); d < "2027-03-15" || d > "2027-03-19" {
+		t.Errorf("12 h reached on %s, want 15..19 March", d)
+	}
+	if d := down.Date.Format(time.DateOnly); d < "2027-09-24" || d > "2027-09-28" {
+		t.Errorf("12 h lost on %s, want 24..28 September", d)
+	}
+	if up.DayLength < 12*time.Hour || up.DayLength-up.DayChange >= 12*time.Hour {
+		t.Errorf("rising crossing: day length %v, day before %v; want the threshold between them", up.DayLength, up.DayLength-up.DayChange)
+	}
+}
+
+// Golden hour (−4°..+6°) contains sunrise and sunset (−0.83°), and blue hour
+// (−6°..−4°) ends where golden hour begins (common practice definitions).
+func TestGoldenAndBlueHour(t *testing.T) {
+	s := site(t, "mid", 48.2, 16.4, "Europe/Vienna")
+	sk := sky(t, "2027-06-01", "2027-06-03")
+	events, _, err := sk.Events(PlaceOf(s), mustKinds(t, "golden-hour", "blue-hour", "sunrise", "sunset"), date("2027-06-01"), date("2027-06-03"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	byDay := map[string]map[string]Event{}
+	for _, e := range events {
+		d := e.Date.Format(time.DateOnly)
+		if byDay[d] == nil {
+			byDay[d] = map[string]Event{}
+		}
+		byDay[d][e.Kind.Name+"/"+e.Part] = e
+	}
+	for d, m := range byDay {
+		gm, ge := m["golden-hour/morning"], m["golden-hour/evening"]
+		bm, be := m["blue-hour/morning"], m["blue-hour/evening"]
+		rise, set := m["sunrise/"], m["sunset/"]
+		if !(gm.Start.Before(rise.Start) && rise.Start.Before(gm.End)) {
+			t.Errorf("%s: sunrise %v outside morning golden hour %v..%v", d, rise.Start, gm.Start, gm.End)
+		}
+		if !(ge.Start.Before(set.Start) && set.Start.Before(ge.End)) {
+			t.Errorf("%s: sunset %v outside evening golden hour %v..%v", d, set.Start, ge.Start, ge.End)
+		}
+		if !bm.End.Equal(gm.Start) || !be.Start.Equal(ge.End) {
+			t.Errorf("%s: blue hour %v..%v / %v..%v does not meet golden hour %v / %v", d, bm.Start, bm.End, be.Start, be.End, gm.Start, ge.End)
+		}
+	}
+	if len(byDay) != 3 {
+		t.Errorf("got events on %d dates, want 3", len(byDay))
+	}
+}
+
+// A calendar rebuilt the next day keeps the UID of every entry that both
+// builds contain, so subscribed clients update entries in place (RFC 5545
+// §3.8.4.7: UID identifies the component).
+func TestUIDsStableAcrossRebuilds(t *testing.T) {
+	cfg := config.Demo()
+	day1 := time.Date(2027, 5, 10, 12, 0, 0, 0, time.UTC)
+	uids := func(now time.Time) map[string]string {
+		cat, err := NewCatalogue(cfg, Options{Now: now})
+		if err != nil {
+			t.Fatal(err)
+		}
+		out := map[string]string{}
+		for i := range cfg.Feeds {
+			f := &cfg.Feeds[i]
+			if hasMoon(f) {
+				continue // the Moon's kinds are covered with the Moon
+			}
+			cal, err := cat.Calendar(f)
+			if err != nil {
+				t.Fatal(err)
+			}
+			for _, e := range cal.Entries {
+				key := f.ID + "|" + e.Kind + "|" + e.Date.Format(time.DateOnly) + "|" + e.Title[:min(len(e.Title), 12)]
+				if _, dup := out[e.UID]; dup {
+					t.Fatalf("feed %s: UID %s used twice", f.ID, e.UID)
+				}
+				out[e.UID] = key
+			}
+		}
+		return out
+	}
+	a, b := uids(day1), uids(day1.AddDate(0, 0, 1))
+	shared := 0
+	for uid, key := range a {
+		if other, ok := b[uid]; ok {
+			shared++
+			if other != key {
+				t.Errorf("UID %s names %q in one build and %q in the next", uid, key, other)
+			}
+		}
+	}
+	if shared < len(a)*9/10 {
+		t.Errorf("only %d of %d UIDs survive a one-day rebuild", shared, len(a))
+	}
+}
+
+func hasMoon(f *config.Feed) bool {
+	for _, k := range f.Kinds {
+		if k.Kind.IsMoon() {
+			return true
+		}
+	}
+	return false
+}
+
+// Options of a kind: an offset shifts the event and names it, a label
+// replaces the title, all_day makes a date entry.
+func TestKindOptions(t *testing.T) {
+	s := site(t, "mid", 48.2, 16.4, "Europe/Vienna")
+	sk := sky(t, "2027-06-01", "2027-06-01")
+	rise := mustKinds(t, "sunrise")[0]
+	plain, err := sk.Entries(s, "f", []config.KindSpec{{Kind: rise}}, date("2027-06-01"), date("2027-06-01"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	shifted, err := sk.Entries(s, "f", []config.KindSpec{{Kind: rise, Offset: config.Duration(-30 * time.Minute)}}, date("2027-06-01"), date("2027-06-01"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	labelled, err := sk.Entries(s, "f", []config.KindSpec{{Kind: rise, Label: "Open the vents", AllDay: true}}, date("2027-06-01"), date("2027-06-01"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(plain) != 1 || len(shifted) != 1 || len(labelled) != 1 {
+		t.Fatalf("entries: %d, %d, %d; want 1 each", len(plain), len(shifted), len(labelled))
+	}
+	if d := plain[0].Start.Sub(shifted[0].Start); d != 30*time.Minute {
+		t.Errorf("offset moved the entry by %v, want 30m", d)
+	}
+	if shifted[0].Title != "30 min before sunrise" {
+		t.Errorf("offset title %q", shifted[0].Title)
+	}
+	if plain[0].UID == shifted[0].UID {
+		t.Error("an offset variant shares the plain kind's UID")
+	}
+	if labelled[0].Title != "Open the vents" || !labelled[0].AllDay || !labelled[0].Start.Equal(date("2027-06-01")) {
+		t.Errorf("labelled all-day entry = %+v", labelled[0])
+	}
+}
+
+// Sunrise and sunset descriptions carry the caution about legal times;
+// golden hour and solar noon warn about looking at the Sun.
+func TestCautions(t *testing.T) {
+	s := site(t, "mid", 48.2, 16.4, "Europe/Vienna")
+	sk := sky(t, "2027-06-01", "2027-06-01")
+	specs := []config.KindSpec{}
+	for _, k := range mustKinds(t, "sunrise", "civil-dusk", "golden-hour", "solar-noon") {
+		specs = append(specs, config.KindSpec{Kind: k})
+	}
+	entries, err := sk.Entries(s, "f", specs, date("2027-06-01"), date("2027-06-01"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, e := range entries {
+		want := cautionEyes
+		if e.Kind == "sunrise" || e.Kind == "civil-dusk" {
+			want = "local rules decide"
+		}
+		if !strings.Contains(e.Description, want) {
+			t.Errorf("%s: description lacks %q:\n%s", e.Kind, want, e.Description)
+		}
+	}
+}
+
+// Daily summaries: one all-day entry per date, whose day length equals
+// sunset minus sunrise at mid-latitudes.
+func TestDailySummary(t *testing.T) {
+	s := site(t, "mid", 48.2, 16.4, "Europe/Vienna")
+	sk := sky(t, "2027-03-25", "2027-04-02")
+	specs := []config.KindSpec{{Kind: mustKinds(t, "daily-summary")[0]}}
+	entries, err := sk.Entries(s, "f", specs, date("2027-03-26"), date("2027-04-01"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(entries) != 7 {
+		t.Fatalf("%d summaries for 7 dates", len(entries))
+	}
+	for _, e := range entries {
+		if !e.AllDay || !strings.HasPrefix(e.Title, "Daylight 12 h") && !strings.HasPrefix(e.Title, "Daylight 13 h") {
+			t.Errorf("summary %q (all-day %v)", e.Title, e.AllDay)
+		}
+		for _, w := range []string{"Sunrise", "Sunset", "Civil dawn", "Civil dusk"} {
+			if !strings.Contains(e.Description, w) {
+				t.Errorf("%s: summary lacks %s:\n%s", e.Date.Format(time.DateOnly), w, e.Description)
+			}
+		}
+	}
+	// 28 March 2027 is the switch to summer time in Vienna (EU rule, last
+	// Sunday of March): the summary's clock times change zone.
+	if !strings.Contains(entries[1].Description, "CET") || !strings.Contains(entries[3].Description, "CEST") {
+		t.Errorf("summaries around the clock change do not follow the zone:\n%s\n%s", entries[1].Description, entries[3].Description)
+	}
+}

@@ -1,0 +1,326 @@
+package serve
+
+import (
+	"crypto/sha256"
+	"encoding/hex"
+	"fmt"
+	"math"
+	"net/url"
+	"slices"
+	"strconv"
+	"strings"
+	"sync"
+	"time"
+	"unicode/utf8"
+)
+
+// The ad-hoc route and its query parameters. Every parameter is checked
+// here; anything unknown, repeated, malformed or out of range is refused with
+// a 400 naming the parameter and its value.
+const (
+	AdhocPath = "/at.ics"
+
+	ParamLatitude  = "lat"   // degrees, −90..90, north positive (required)
+	ParamLongitude = "lon"   // degrees, −180..180, east positive (required)
+	ParamZone      = "tz"    // IANA time zone name, e.g. Europe/Vienna (required)
+	ParamKinds     = "kinds" // comma-separated event kinds (default: Options.AdhocDefaultKinds)
+	ParamDays      = "days"  // number of days, 1..Options.AdhocMaxDays (default Options.AdhocDefaultDays)
+	ParamStart     = "start" // first local date, YYYY-MM-DD (default: today in tz)
+	ParamElevation = "elev"  // metres above sea level, −500..9000 (default 0)
+	ParamUTC       = "utc"   // true/false: write times in UTC instead of tz (default false)
+)
+
+var adhocParams = []string{ParamLatitude, ParamLongitude, ParamZone, ParamKinds, ParamDays, ParamStart, ParamElevation, ParamUTC}
+
+// Bounds of the ad-hoc parameters.
+const (
+	minElevation   = -500.0 // m; the lowest dry land is about −430 m (Dead Sea shore)
+	maxElevation   = 9000.0 // m; the highest summit is about 8850 m
+	maxKinds       = 32
+	maxZoneLen     = 64
+	coordDecimals  = 1e4 // latitude and longitude are rounded to 0.0001° (about 11 m)
+	maxQueryLength = 2048
+)
+
+// AdhocQuery is a validated, normalised ad-hoc feed request. Two requests
+// that differ only in spelling (parameter order, kind order, trailing zeros,
+// case of true/false) give the same AdhocQuery and share a cache entry.
+type AdhocQuery struct {
+	Latitude  float64        // degrees, north positive, rounded to 0.0001°
+	Longitude float64        // degrees, east positive, rounded to 0.0001°
+	Elevation float64        // metres above sea level, rounded to 1 m
+	Location  *time.Location // the zone local dates and times are in
+	// Kinds are the event kinds in the canonical form returned by
+	// Options.ParseKind, sorted and without duplicates.
+	Kinds []string
+	// Start is the first local date of the window, at 00:00 UTC (only its
+	// year, month and day count).
+	Start time.Time
+	Days  int  // length of the window in days
+	UTC   bool // write times in UTC instead of Location
+}
+
+// String returns the canonical query string, the cache key.
+func (q AdhocQuery) String() string {
+	return q.place() + "&" + ParamStart + "=" + q.Start.Format(time.DateOnly) +
+		"&" + ParamDays + "=" + strconv.Itoa(q.Days)
+}
+
+// place is everything but the window.
+func (q AdhocQuery) place() string {
+	var b strings.Builder
+	b.WriteString(ParamLatitude + "=" + strconv.FormatFloat(q.Latitude, 'f', -1, 64))
+	b.WriteString("&" + ParamLongitude + "=" + strconv.FormatFloat(q.Longitude, 'f', -1, 64))
+	b.WriteString("&" + ParamElevation + "=" + strconv.FormatFloat(q.Elevation, 'f', -1, 64))
+	b.WriteString("&" + ParamZone + "=" + q.Location.String())
+	b.WriteString("&" + ParamKinds + "=" + strings.Join(q.Kinds, ","))
+	b.WriteString("&" + ParamUTC + "=" + strconv.FormatBool(q.UTC))
+	return b.String()
+}
+
+// ID is a short identifier of the place, zone and kinds (not of the window):
+// "at-" and 12 hex digits. Use it as the feed id so event UIDs stay the same
+// when the same query is asked again another day.
+func (q AdhocQuery) ID() string {
+	sum := sha256.Sum256([]byte(q.place()))
+	return "at-" + hex.EncodeToString(sum[:6])
+}
+
+// QueryError is a refused ad-hoc parameter. Its message is one line and names
+// the parameter and the value.
+type QueryError struct {
+	Param string
+	Value string
+	Msg   string
+}
+
+func (e *QueryError) Error() string {
+	if e.Param == "" {
+		return "serve: " + e.Msg
+	}
+	return fmt.Sprintf("serve: parameter %s=%s: %s", paramName(e.Param), quoteValue(e.Value), e.Msg)
+}
+
+// paramName writes a parameter name as is when it is a plain word, quoted
+// otherwise (an unknown parameter may hold anything).
+func paramName(p string) string {
+	for _, r := range p {
+		if !(r >= 'a' && r <= 'z' || r >= 'A' && r <= 'Z' || r >= '0' && r <= '9' || r == '_' || r == '-') {
+			return quoteValue(p)
+		}
+	}
+	return p
+}
+
+// quoteValue quotes v for a one-line message, cut to a readable length.
+func quoteValue(v string) string {
+	const max = 64
+	if utf8.RuneCountInString(v) > max {
+		r := []rune(v)
+		return strconv.Quote(string(r[:max])) + "…"
+	}
+	return strconv.Quote(v)
+}
+
+// adhocLimits are the bounds and defaults parseAdhoc applies.
+type adhocLimits struct {
+	parseKind    func(string) (string, error)
+	defaultKinds []string
+	maxDays      int
+	defaultDays  int
+	minYear      int
+	maxYear      int
+	zones        *zoneCache
+}
+
+// parseAdhoc validates and normalises a raw query string. now fixes "today"
+// when start is absent.
+func parseAdhoc(raw string, now time.Time, lim *adhocLimits) (AdhocQuery, error) {
+	var q AdhocQuery
+	if len(raw) > maxQueryLength {
+		return q, &QueryError{Msg: fmt.Sprintf("query string longer than %d bytes", maxQueryLength)}
+	}
+	vals, err := url.ParseQuery(raw)
+	if err != nil {
+		return q, &QueryError{Msg: "malformed query string: " + quoteValue(raw)}
+	}
+	keys := make([]string, 0, len(vals))
+	for k := range vals {
+		keys = append(keys, k)
+	}
+	slices.Sort(keys)
+	for _, k := range keys {
+		if !slices.Contains(adhocParams, k) {
+			return q, &QueryError{Param: k, Value: vals.Get(k),
+				Msg: "unknown parameter (known: " + strings.Join(adhocParams, ", ") + ")"}
+		}
+		if len(vals[k]) > 1 {
+			return q, &QueryError{Param: k, Value: strings.Join(vals[k], ","), Msg: "given more than once"}
+		}
+	}
+	get := func(name string) (string, bool) {
+		v, ok := vals[name]
+		if !ok {
+			return "", false
+		}
+		return v[0], true
+	}
+
+	if q.Latitude, err = parseCoord(get, ParamLatitude, 90); err != nil {
+		return q, err
+	}
+	if q.Longitude, err = parseCoord(get, ParamLongitude, 180); err != nil {
+		return q, err
+	}
+	if q.Longitude == -180 {
+		q.Longitude = 180 // the same meridian, one spelling
+	}
+
+	if v, ok := get(ParamElevation); ok {
+		e, err := parseFloat(ParamElevation, v)
+		if err != nil {
+			return q, err
+		}
+		if e < minElevation || e > maxElevation {
+			return q, &QueryError{Param: ParamElevation, Value: v,
+				Msg: fmt.Sprintf("must be within %g..%g metres", minElevation, maxElevation)}
+		}
+		q.Elevation = math.Round(e) + 0 // + 0 turns −0 into 0
+	}
+
+	tz, ok := get(ParamZone)
+	if !ok {
+		return q, &QueryError{Param: ParamZone, Msg: "required: an IANA time zone name such as Europe/Vienna"}
+	}
+	if q.Location, err = lim.zones.load(tz); err != nil {
+		return q, &QueryError{Param: ParamZone, Value: tz, Msg: "unknown time zone (use an IANA name such as Europe/Vienna)"}
+	}
+
+	if v, ok := get(ParamKinds); ok {
+		if q.Kinds, err = parseKinds(v, lim.parseKind); err != nil {
+			return q, err
+		}
+	} else if len(lim.defaultKinds) > 0 {
+		q.Kinds = lim.defaultKinds
+	} else {
+		return q, &QueryError{Param: ParamKinds, Msg: "required: a comma-separated list of event kinds"}
+	}
+
+	q.Days = lim.defaultDays
+	if v, ok := get(ParamDays); ok {
+		d, err := strconv.Atoi(v)
+		if err != nil {
+			return q, &QueryError{Param: ParamDays, Value: v, Msg: "not a whole number"}
+		}
+		if d < 1 || d > lim.maxDays {
+			return q, &QueryError{Param: ParamDays, Value: v, Msg: fmt.Sprintf("must be within 1..%d", lim.maxDays)}
+		}
+		q.Days = d
+	}
+
+	if v, ok := get(ParamStart); ok {
+		d, err := time.Parse(time.DateOnly, v)
+		if err != nil {
+			return q, &QueryError{Param: ParamStart, Value: v, Msg: "not a date of the form YYYY-MM-DD"}
+		}
+		q.Start = d
+	} else {
+		y, m, d := now.In(q.Location).Date()
+		q.Start = time.Date(y, m, d, 0, 0, 0, 0, time.UTC)
+	}
+	first := time.Date(lim.minYear, 1, 1, 0, 0, 0, 0, time.UTC)
+	last := time.Date(lim.maxYear, 12, 31, 0, 0, 0, 0, time.UTC)
+	if q.Start.Before(first) || q.Start.AddDate(0, 0, q.Days-1).After(last) {
+		v, _ := get(ParamStart)
+		if v == "" {
+			v = q.Start.Format(time.DateOnly)
+		}
+		return q, &QueryError{Param: ParamStart, Value: v,
+			Msg: fmt.Sprintf("the window must lie within %d-01-01..%d-12-31", lim.minYear, lim.maxYear)}
+	}
+
+	if v, ok := get(ParamUTC); ok {
+		switch strings.ToLower(v) {
+		case "1", "true", "yes":
+			q.UTC = true
+		case "0", "false", "no":
+		default:
+			return q, &QueryError{Param: ParamUTC, Value: v, Msg: "must be true or false"}
+		}
+	}
+	return q, nil
+}
+
+func parseFloat(name, v string) (float64, error) {
+	f, err := strconv.ParseFloat(strings.TrimSpace(v), 64)
+	if err != nil || math.IsNaN(f) || math.IsInf(f, 0) {
+		return 0, &QueryError{Param: name, Value: v, Msg: "not a decimal number"}
+	}
+	return f, nil
+}
+
+func parseCoord(get func(string) (string, bool), name string, limit float64) (float64, error) {
+	v, ok := get(name)
+	if !ok {
+		return 0, &QueryError{Param: name, Msg: fmt.Sprintf("required: decimal degrees within -%g..%g", limit, limit)}
+	}
+	f, err := parseFloat(name, v)
+	if err != nil {
+		return 0, err
+	}
+	if f < -limit || f > limit {
+		return 0, &QueryError{Param: name, Value: v, Msg: fmt.Sprintf("must be within -%g..%g degrees", limit, limit)}
+	}
+	return math.Round(f*coordDecimals)/coordDecimals + 0, nil
+}
+
+func parseKinds(v string, parse func(string) (string, error)) ([]string, error) {
+	parts := strings.Split(v, ",")
+	if len(parts) > maxKinds {
+		return nil, &QueryError{Param: ParamKinds, Value: v, Msg: fmt.Sprintf("more than %d kinds", maxKinds)}
+	}
+	kinds := make([]string, 0, len(parts))
+	for _, p := range parts {
+		p = strings.TrimSpace(p)
+		if p == "" {
+			return nil, &QueryError{Param: ParamKinds, Value: v, Msg: "empty kind in the list"}
+		}
+		k, err := parse(p)
+		if err != nil {
+			return nil, &QueryError{Param: ParamKinds, Value: p, Msg: oneLine(err.Error())}
+		}
+		kinds = append(kinds, k)
+	}
+	slices.Sort(kinds)
+	return slices.Compact(kinds), nil
+}
+
+// oneLine keeps the first line of a message.
+func oneLine(s string) string {
+	if i := strings.IndexAny(s, "\r\n"); i >= 0 {
+		return s[:i]
+	}
+	return s
+}
+
+// zoneCache remembers the zones it has loaded: time.LoadLocation reads the
+// tz database on every call. Only names that loaded are kept, so its size is
+// bounded by the database.
+type zoneCache struct{ m sync.Map }
+
+func (z *zoneCache) load(name string) (*time.Location, error) {
+	if v, ok := z.m.Load(name); ok {
+		return v.(*time.Location), nil
+	}
+	// "Local" would be the server's own zone, meaningless to a caller;
+	// time.LoadLocation already refuses ".." and absolute paths.
+	if name == "" || name == "Local" || len(name) > maxZoneLen || strings.ContainsAny(name, "\\\x00") {
+		return nil, fmt.Errorf("serve: unknown time zone %q", name)
+	}
+	loc, err := time.LoadLocation(name)
+	if err != nil {
+		return nil, err
+	}
+	z.m.Store(name, loc)
+	return loc, nil
+}

@@ -1,0 +1,317 @@
+package serve
+
+import (
+	"context"
+	"errors"
+	"net/http"
+	"net/http/httptest"
+	"strings"
+	"sync"
+	"sync/atomic"
+	"testing"
+	"time"
+)
+
+// today is the server's "now" in these tests.
+var today = time.Date(2026, 12, 2, 4, 30, 0, 0, time.UTC)
+
+func adhocServer(t *testing.T, fn AdhocFunc) *Server {
+	t.Helper()
+	s, _ := newTestServer(t, Options{Adhoc: fn})
+	s.now = func() time.Time { return today }
+	return s
+}
+
+func TestAdhocBadParameters(t *testing.T) {
+	s := adhocServer(t, adhocICS)
+	ok := "lat=47.5&lon=13.05&tz=Europe/Vienna&kinds=sunrise"
+	for _, tc := range []struct {
+		query string
+		param string // the parameter the message must name
+		value string // and the value, when there is one
+	}{
+		{"lon=13&tz=UTC&kinds=sunrise", "lat", ""},
+		{"lat=&lon=13&tz=UTC&kinds=sunrise", "lat", `""`},
+		{"lat=91&lon=13&tz=UTC&kinds=sunrise", "lat", `"91"`},
+		{"lat=-90.0001&lon=13&tz=UTC&kinds=sunrise", "lat", `"-90.0001"`},
+		{"lat=north&lon=13&tz=UTC&kinds=sunrise", "lat", `"north"`},
+		{"lat=NaN&lon=13&tz=UTC&kinds=sunrise", "lat", `"NaN"`},
+		{"lat=Inf&lon=13&tz=UTC&kinds=sunrise", "lat", `"Inf"`},
+		{"lat=1e400&lon=13&tz=UTC&kinds=sunrise", "lat", `"1e400"`},
+		{"lat=47,5&lon=13&tz=UTC&kinds=sunrise", "lat", `"47,5"`},
+		{"lat=47&tz=UTC&kinds=sunrise", "lon", ""},
+		{"lat=47&lon=180.5&tz=UTC&kinds=sunrise", "lon", `"180.5"`},
+		{"lat=47&lon=-181&tz=UTC&kinds=sunrise", "lon", `"-181"`},
+		{"lat=47&lon=13&kinds=sunrise", "tz", ""},
+		{"lat=47&lon=13&tz=Mars/Olympus_Mons&kinds=sunrise", "tz", `"Mars/Olympus_Mons"`},
+		{"lat=47&lon=13&tz=Local&kinds=sunrise", "tz", `"Local"`},
+		{"lat=47&lon=13&tz=../../etc/passwd&kinds=sunrise", "tz", `"../../etc/passwd"`},
+		{"lat=47&lon=13&tz=/etc/localtime&kinds=sunrise", "tz", `"/etc/localtime"`},
+		{"lat=47&lon=13&tz=europe/vienna&kinds=sunrise", "tz", `"europe/vienna"`},
+		{"lat=47&lon=13&tz=", "tz", `""`},
+		{"lat=47&lon=13&tz=UTC", "kinds", ""},
+		{"lat=47&lon=13&tz=UTC&kinds=", "kinds", `""`},
+		{"lat=47&lon=13&tz=UTC&kinds=sunrise,,sunset", "kinds", `"sunrise,,sunset"`},
+		{"lat=47&lon=13&tz=UTC&kinds=sunrse", "kinds", `"sunrse"`},
+		{"lat=47&lon=13&tz=UTC&kinds=sunrise,moonwalk", "kinds", `"moonwalk"`},
+		{"lat=47&lon=13&tz=UTC&kinds=sun-altitude:95", "kinds", `"sun-altitude:95"`},
+		{"lat=47&lon=13&tz=UTC&kinds=photoperiod:25h", "kinds", `"photoperiod:25h"`},
+		{"lat=47&lon=13&tz=UTC&kinds=" + strings.Repeat("sunrise,", 40) + "sunset", "kinds", "more than"},
+		{ok + "&days=0", "days", `"0"`},
+		{ok + "&days=401", "days", `"401"`},
+		{ok + "&days=-5", "days", `"-5"`},
+		{ok + "&days=1.5", "days", `"1.5"`},
+		{ok + "&days=99999999999999999999", "days", `"99999999999999999999"`},
+		{ok + "&start=2026-13-01", "start", `"2026-13-01"`},
+		{ok + "&start=2026-02-30", "start", `"2026-02-30"`},
+		{ok + "&start=01.03.2026", "start", `"01.03.2026"`},
+		{ok + "&start=1899-12-31", "start", `"1899-12-31"`},
+		{ok + "&start=2100-12-01&days=60", "start", `"2100-12-01"`},
+		{ok + "&elev=9001", "elev", `"9001"`},
+		{ok + "&elev=-501", "elev", `"-501"`},
+		{ok + "&elev=high", "elev", `"high"`},
+		{ok + "&utc=maybe", "utc", `"maybe"`},
+		{ok + "&lat=48", "lat", `"47.5,48"`},
+		{ok + "&latitude=48", "latitude", `"48"`},
+		{ok + "&callback=x", "callback", `"x"`},
+		{ok + "&%zz=1", "", "malformed"},
+		{ok + "&a=1;b=2", "", "malformed"},
+		{strings.Repeat("x", 3000), "", "longer than"},
+	} {
+		t.Run(tc.query, func(t *testing.T) {
+			r := get(t, s.Handler(), "GET", "/at.ics?"+tc.query)
+			msg := body(t, r)
+			if r.StatusCode != http.StatusBadRequest {
+				t.Fatalf("status %d (%q), want 400", r.StatusCode, msg)
+			}
+			if !strings.HasPrefix(r.Header.Get("Content-Type"), "text/plain") {
+				t.Errorf("Content-Type %q", r.Header.Get("Content-Type"))
+			}
+			if strings.Count(msg, "\n") != 1 || !strings.HasSuffix(msg, "\n") {
+				t.Errorf("message is not one line: %q", msg)
+			}
+			if tc.param != "" && !strings.Contains(msg, "parameter "+tc.param) {
+				t.Errorf("message %q does not name parameter %s", msg, tc.param)
+			}
+			if !strings.Contains(msg, tc.value) {
+				t.Errorf("message %q does not name the value %s", msg, tc.value)
+			}
+		})
+	}
+}
+
+func TestAdhocNormalisedAndCached(t *testing.T) {
+	var calls atomic.Int32
+	var got AdhocQuery
+	var mu sync.Mutex
+	s := adhocServer(t, func(ctx context.Context, q AdhocQuery) ([]byte, error) {
+		calls.Add(1)
+		mu.Lock()
+		got = q
+		mu.Unlock()
+		return adhocICS(ctx, q)
+	})
+	h := s.Handler()
+	first := get(t, h, "GET", "/at.ics?lat=47.50001&lon=13.05&tz=Europe/Vienna&kinds=sunset,sunrise&elev=424.4")
+	if first.StatusCode != 200 {
+		t.Fatalf("status %d: %s", first.StatusCode, body(t, first))
+	}
+	want := "lat=47.5&lon=13.05&elev=424&tz=Europe/Vienna&kinds=sunrise,sunset&utc=false&start=2026-12-02&days=365"
+	if got.String() != want {
+		t.Errorf("query = %s\nwant    %s", got.String(), want)
+	}
+	if got.Location.String() != "Europe/Vienna" || got.Days != 365 || !got.Start.Equal(time.Date(2026, 12, 2, 0, 0, 0, 0, time.UTC)) {
+		t.Errorf("query = %+v", got)
+	}
+	for _, h := range []string{"Content-Type", "ETag", "Last-Modified", "Cache-Control", "Access-Control-Allow-Origin"} {
+		if first.Header.Get(h) == "" {
+			t.Errorf("ad-hoc response lacks %s", h)
+		}
+	}
+	if ct := first.Header.Get("Content-Type"); ct != "text/calendar; charset=utf-8" {
+		t.Errorf("Content-Type %q", ct)
+	}
+	// The same query spelled differently is a cache hit.
+	for _, q := range []string{
+		"kinds=sunrise,sunset&tz=Europe/Vienna&lon=13.0500&lat=47.5&elev=424",
+		"lat=47.5&lon=13.05&tz=Europe/Vienna&kinds=%20sunrise%20,sunset,sunrise&elev=423.6&utc=FALSE&start=2026-12-02&days=365",
+	} {
+		r := get(t, h, "GET", "/at.ics?"+q)
+		if r.StatusCode != 200 || r.Header.Get("ETag") != first.Header.Get("ETag") {
+			t.Errorf("%s: status %d ETag %q", q, r.StatusCode, r.Header.Get("ETag"))
+		}
+	}
+	if n := calls.Load(); n != 1 {
+		t.Errorf("ad-hoc builder called %d times, want 1 (cache)", n)
+	}
+	r := get(t, h, "GET", "/at.ics?lat=47.5&lon=13.05&tz=Europe/Vienna&kinds=sunrise,sunset&elev=424", "If-None-Match", first.Header.Get("ETag"))
+	if r.StatusCode != 304 {
+		t.Errorf("conditional ad-hoc request: status %d, want 304", r.StatusCode)
+	}
+	// A refresh empties the cache.
+	if s.cache.len() == 0 {
+		t.Fatal("nothing cached")
+	}
+	s.Refresh(t.Context())
+	if s.cache.len() != 0 {
+		t.Error("refresh kept the ad-hoc cache")
+	}
+	// "today" in the requested zone: at 04:30 UTC it is still 1 December in Honolulu (UTC−10).
+	get(t, h, "GET", "/at.ics?lat=21.3&lon=-157.86&tz=Pacific/Honolulu&kinds=sunrise&days=1")
+	if want := time.Date(2026, 12, 1, 0, 0, 0, 0, time.UTC); !got.Start.Equal(want) {
+		t.Errorf("default start in Honolulu = %v, want %v", got.Start, want)
+	}
+}
+
+func TestAdhocIDStable(t *testing.T) {
+	lim := &adhocLimits{parseKind: parseKind, maxDays: 400, defaultDays: 365, minYear: 1900, maxYear: 2100, zones: &zoneCache{}}
+	a, err := parseAdhoc("lat=47.5&lon=13&tz=Europe/Vienna&kinds=sunrise", today, lim)
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, _ := parseAdhoc("lat=47.5&lon=13&tz=Europe/Vienna&kinds=sunrise&start=2027-01-01&days=30", today, lim)
+	c, _ := parseAdhoc("lat=47.5&lon=13&tz=Europe/Vienna&kinds=sunset", today, lim)
+	if a.ID() != b.ID() || a.ID() == c.ID() || !strings.HasPrefix(a.ID(), "at-") || len(a.ID()) != 15 {
+		t.Errorf("IDs %s %s %s: want equal for the same place and kinds whatever the window", a.ID(), b.ID(), c.ID())
+	}
+	d, _ := parseAdhoc("lat=-0.00001&lon=-180&tz=UTC&kinds=sunrise", today, lim)
+	if d.Latitude != 0 || d.Longitude != 180 || strings.HasPrefix(d.String(), "lat=-") {
+		t.Errorf("normalisation of -0 and -180: %s", d.String())
+	}
+}
+
+func TestAdhocDisabledAndDefaults(t *testing.T) {
+	s, _ := newTestServer(t, Options{})
+	if r := get(t, s.Handler(), "GET", "/at.ics?lat=1&lon=1&tz=UTC&kinds=sunrise"); r.StatusCode != 404 {
+		t.Errorf("ad-hoc without a builder: status %d, want 404", r.StatusCode)
+	}
+	var got AdhocQuery
+	s, _ = newTestServer(t, Options{
+		Adhoc:             func(ctx context.Context, q AdhocQuery) ([]byte, error) { got = q; return adhocICS(ctx, q) },
+		AdhocDefaultKinds: []string{"Sunset", "sunrise"},
+		AdhocDefaultDays:  30,
+		AdhocMaxDays:      60,
+	})
+	if r := get(t, s.Handler(), "GET", "/at.ics?lat=1&lon=1&tz=UTC"); r.StatusCode != 200 {
+		t.Fatalf("status %d", r.StatusCode)
+	}
+	if strings.Join(got.Kinds, ",") != "sunrise,sunset" || got.Days != 30 {
+		t.Errorf("defaults: %s", got.String())
+	}
+	if r := get(t, s.Handler(), "GET", "/at.ics?lat=1&lon=1&tz=UTC&days=61"); r.StatusCode != 400 {
+		t.Errorf("days over AdhocMaxDays: status %d", r.StatusCode)
+	}
+}
+
+func TestAdhocBuilderErrors(t *testing.T) {
+	var mode atomic.Value
+	s := adhocServer(t, func(ctx context.Context, q AdhocQuery) ([]byte, error) {
+		switch mode.Load() {
+		case "query":
+			return nil, &QueryError{Param: ParamKinds, Value: "moonrise", Msg: "not available above 80° latitude"}
+		case "fail":
+			return nil, errors.New("ical: encoder failed")
+		case "panic":
+			panic("index out of range")
+		}
+		return adhocICS(ctx, q)
+	})
+	h := s.Handler()
+	for i, tc := range []struct {
+		mode string
+		code int
+		msg  string
+	}{
+		{"query", 400, "parameter kinds=\"moonrise\": not available"},
+		{"fail", 500, "internal error"},
+		{"panic", 500, "internal error"},
+		{"ok", 200, "BEGIN:VCALENDAR"},
+	} {
+		mode.Store(tc.mode)
+		r := get(t, h, "GET", "/at.ics?lat=81&lon=1&tz=UTC&kinds=moonrise&days="+string(rune('1'+i)))
+		if got := body(t, r); r.StatusCode != tc.code || !strings.Contains(got, tc.msg) {
+			t.Errorf("%s: %d %q, want %d %q", tc.mode, r.StatusCode, got, tc.code, tc.msg)
+		}
+	}
+}
+
+// TestAdhocSharedBuild: identical concurrent requests build once.
+func TestAdhocSharedBuild(t *testing.T) {
+	release := make(chan struct{})
+	entered := make(chan struct{}, 10)
+	var calls atomic.Int32
+	s := adhocServer(t, func(ctx context.Context, q AdhocQuery) ([]byte, error) {
+		calls.Add(1)
+		entered <- struct{}{}
+		<-release
+		return adhocICS(ctx, q)
+	})
+	var wg sync.WaitGroup
+	const n = 5
+	codes := make([]int, n)
+	started := make(chan struct{}, n)
+	for i := range n {
+		wg.Go(func() {
+			started <- struct{}{}
+			codes[i] = get(t, s.Handler(), "GET", "/at.ics?lat=10&lon=10&tz=UTC&kinds=sunrise").StatusCode
+		})
+	}
+	<-entered
+	for range n {
+		<-started
+	}
+	// Waiters join the flight while the one build is blocked: wait until
+	// they are all registered before releasing it.
+	for {
+		s.flights.mu.Lock()
+		f := s.flights.m["lat=10&lon=10&elev=0&tz=UTC&kinds=sunrise&utc=false&start=2026-12-02&days=365"]
+		s.flights.mu.Unlock()
+		if f != nil {
+			break
+		}
+	}
+	close(release)
+	wg.Wait()
+	for i, c := range codes {
+		if c != 200 {
+			t.Errorf("request %d: status %d", i, c)
+		}
+	}
+	if c := calls.Load(); c < 1 || c > n {
+		t.Errorf("builds %d", c)
+	}
+}
+
+func FuzzAdhocQuery(f *testing.F) {
+	for _, seed := range []string{
+		"lat=47.5&lon=13.05&tz=Europe/Vienna&kinds=sunrise,sunset&days=365&start=2026-12-02&elev=424&utc=true",
+		"lat=-33.9&lon=151.2&tz=Australia/Sydney&kinds=sun-altitude:-3.5,photoperiod:12h",
+		"lat=89.9999&lon=-180&tz=UTC&kinds=moonrise&days=400",
+		"lat=1e400&lon=NaN&tz=../x&kinds=,&days=-1",
+		"%zz&;;==&lat=1&lat=2",
+		"lat=0x1p-2&lon=1_000&tz=Local&kinds=\x00",
+		"start=0000-01-01&days=400&lat=0&lon=0&tz=UTC&kinds=sunrise",
+	} {
+		f.Add(seed)
+	}
+	s, _ := newTestServer(f, Options{Adhoc: adhocICS})
+	s.now = func() time.Time { return today }
+	h := s.Handler()
+	f.Fuzz(func(t *testing.T, raw string) {
+		// Set the raw query directly: a request line that a real server
+		// would refuse to parse still reaches the parser this way.
+		req := httptest.NewRequest("GET", "/at.ics", nil)
+		req.URL.RawQuery = raw
+		w := httptest.NewRecorder()
+		h.ServeHTTP(w, req)
+		r := w.Result()
+		if r.StatusCode >= 500 {
+			t.Fatalf("query %q: status %d %s", raw, r.StatusCode, body(t, r))
+		}
+		if r.StatusCode == 400 {
+			if msg := body(t, r); strings.Count(msg, "\n") != 1 {
+				t.Fatalf("query %q: message not one line: %q", raw, msg)
+			}
+		}
+	})
+}

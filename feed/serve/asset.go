@@ -1,0 +1,215 @@
+package serve
+
+import (
+	"bytes"
+	"compress/gzip"
+	"crypto/sha256"
+	"encoding/hex"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"path"
+	"runtime"
+	"strconv"
+	"strings"
+	"sync"
+	"time"
+
+	"heliocal/feed/publish"
+)
+
+// asset is one servable representation set: the bytes, their gzip form when
+// that is worth it, and the header values, all computed once at swap time so
+// a hot request neither hashes nor compresses.
+type asset struct {
+	name    string
+	data    []byte
+	gz      []byte // nil when gzip would not help
+	sum     string // hex SHA-256 of data
+	modTime time.Time
+
+	// Header values, each a one-element slice with cap 1, shared read-only
+	// by every response (an append by anyone copies).
+	contentType []string
+	etag        []string // strong: the quoted checksum
+	gzETag      []string // the gzip variant's own strong ETag
+	disposition []string // inline; filename=..., for .ics only
+	cors        bool
+}
+
+// minGzip is the smallest body worth compressing.
+const minGzip = 512
+
+func hdr(v string) []string { return []string{v} } // len 1, cap 1
+
+// newAsset hashes and compresses data. If prev holds the same bytes its gzip
+// form is reused.
+func newAsset(name, contentType string, data []byte, mod time.Time, prev *asset) *asset {
+	sum := sha256.Sum256(data)
+	a := &asset{name: name, data: data, sum: hex.EncodeToString(sum[:]), modTime: mod}
+	a.contentType = hdr(contentTypeFor(name, contentType))
+	a.etag = hdr(`"` + a.sum + `"`)
+	a.gzETag = hdr(`"` + a.sum + `-gz"`)
+	ext := path.Ext(name)
+	if ext == ".ics" {
+		a.disposition = hdr(`inline; filename="` + path.Base(name) + `"`)
+	}
+	a.cors = ext == ".ics" || ext == ".json"
+	if prev != nil && prev.sum == a.sum {
+		a.gz = prev.gz
+	} else if len(data) >= minGzip {
+		a.gz = gzipBytes(data)
+	}
+	return a
+}
+
+func gzipBytes(data []byte) []byte {
+	var buf bytes.Buffer
+	zw, _ := gzip.NewWriterLevel(&buf, gzip.DefaultCompression) // level is valid: no error
+	zw.Write(data)                                            // a bytes.Buffer never fails
+	zw.Close()
+	if buf.Len() >= len(data)*9/10 {
+		return nil
+	}
+	return buf.Bytes()
+}
+
+// contentTypeFor fixes the types heliocal serves whatever the bundle says,
+// so a calendar client always gets text/calendar with its charset.
+func contentTypeFor(name, given string) string {
+	switch path.Ext(name) {
+	case ".ics":
+		return "text/calendar; charset=utf-8"
+	case ".json":
+		return "application/json"
+	case ".html":
+		return "text/html; charset=utf-8"
+	}
+	if given != "" {
+		return given
+	}
+	return "application/octet-stream"
+}
+
+// snapshot is a prepared Bundle: what the handler serves, swapped whole.
+type snapshot struct {
+	built  time.Time
+	files  map[string]*asset
+	feeds  int
+	events int
+}
+
+// prepare checks a bundle and builds its snapshot, reusing gzip bytes of
+// files unchanged since prev. It refuses a bundle that could not be served
+// faithfully (nil, unnamed or duplicate files, a checksum that does not match
+// the bytes).
+func prepare(b *publish.Bundle, prev *snapshot, now time.Time) (*snapshot, error) {
+	if b == nil {
+		return nil, errors.New("serve: build returned no bundle")
+	}
+	built := b.Built
+	if built.IsZero() {
+		built = now
+	}
+	s := &snapshot{built: built, files: make(map[string]*asset, len(b.Files)+1), feeds: len(b.Feeds)}
+	for _, f := range b.Feeds {
+		s.events += f.Events
+	}
+	for i := range b.Files {
+		f := &b.Files[i]
+		if f.Name == "" || strings.HasPrefix(f.Name, "/") || strings.Contains(f.Name, "..") {
+			return nil, fmt.Errorf("serve: bundle file %d: bad name %q", i, f.Name)
+		}
+		if _, dup := s.files[f.Name]; dup {
+			return nil, fmt.Errorf("serve: bundle file %q: listed twice", f.Name)
+		}
+		s.files[f.Name] = nil
+	}
+
+	// Hash and compress in parallel: a large configuration has hundreds of
+	// feeds of a few hundred kilobytes each.
+	assets := make([]*asset, len(b.Files))
+	errs := make([]error, len(b.Files))
+	var wg sync.WaitGroup
+	next := make(chan int)
+	for range min(runtime.GOMAXPROCS(0), max(len(b.Files), 1)) {
+		wg.Go(func() {
+			for i := range next {
+				f := &b.Files[i]
+				var p *asset
+				if prev != nil {
+					p = prev.files[f.Name]
+				}
+				mod := f.ModTime
+				if mod.IsZero() {
+					mod = built
+				}
+				a := newAsset(f.Name, f.ContentType, f.Data, mod, p)
+				if f.Checksum != "" && !strings.EqualFold(f.Checksum, a.sum) {
+					errs[i] = fmt.Errorf("serve: bundle file %q: checksum %s does not match its bytes (%s)", f.Name, f.Checksum, a.sum)
+				}
+				assets[i] = a
+			}
+		})
+	}
+	for i := range b.Files {
+		next <- i
+	}
+	close(next)
+	wg.Wait()
+	if err := errors.Join(errs...); err != nil {
+		return nil, err
+	}
+	for _, a := range assets {
+		s.files[a.name] = a
+	}
+	if s.files["feeds.json"] == nil {
+		// The bundle has no feeds.json of its own: describe its feeds.
+		feeds := b.Feeds
+		if feeds == nil {
+			feeds = []publish.FeedInfo{}
+		}
+		data, err := json.MarshalIndent(feeds, "", "  ")
+		if err != nil {
+			return nil, fmt.Errorf("serve: feeds.json: %w", err)
+		}
+		var p *asset
+		if prev != nil {
+			p = prev.files["feeds.json"]
+		}
+		s.files["feeds.json"] = newAsset("feeds.json", "", append(data, '\n'), built, p)
+	}
+	return s, nil
+}
+
+// acceptsGzip reports whether an Accept-Encoding header value allows gzip
+// (RFC 9110 §12.5.3): listed as gzip or x-gzip, or covered by "*", with a
+// non-zero weight.
+func acceptsGzip(h string) bool {
+	if h == "" {
+		return false
+	}
+	star := -1.0
+	for part := range strings.SplitSeq(h, ",") {
+		name, params, _ := strings.Cut(part, ";")
+		name = strings.ToLower(strings.TrimSpace(name))
+		q := 1.0
+		for p := range strings.SplitSeq(params, ";") {
+			k, v, ok := strings.Cut(strings.TrimSpace(p), "=")
+			if ok && strings.EqualFold(strings.TrimSpace(k), "q") {
+				f, err := strconv.ParseFloat(strings.TrimSpace(v), 64)
+				if err != nil || f < 0 || f > 1 {
+					f = 0
+				}
+				q = f
+			}
+		}
+		switch name {
+		case "gzip", "x-gzip":
+			return q > 0
+		case "*":
+			star = q
+		}
+	}
+	return star > 0
+}

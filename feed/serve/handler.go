@@ -1,0 +1,295 @@
+package serve
+
+import (
+	"bytes"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"log/slog"
+	"net/http"
+	"runtime/debug"
+	"strconv"
+	"strings"
+	"sync"
+	"time"
+
+	"github.com/prometheus/client_golang/prometheus/promhttp"
+)
+
+// The routes:
+//
+//	/, /index.html        the index page (the bundle's index.html)
+//	/feeds/<id>.ics       a feed (the bundle's <id>.ics)
+//	/<id>.ics             the same feed at the published directory's layout
+//	/feeds.json           the list of feeds
+//	/at.ics?…             an ad-hoc feed (see AdhocQuery and the Param constants)
+//	/healthz              200 once feeds are served, 503 before
+//	/metrics              Prometheus text format
+//
+// Only GET and HEAD are allowed (405 with Allow otherwise).
+
+var (
+	hdrNosniff    = hdr("nosniff")
+	hdrCORS       = hdr("*")
+	hdrVary       = hdr("Accept-Encoding")
+	hdrGzip       = hdr("gzip")
+	hdrNoStore    = hdr("no-store")
+	hdrAllow      = hdr("GET, HEAD")
+	hdrRetryAfter = hdr("30")
+)
+
+func (s *Server) newHandler() http.Handler {
+	metricsHandler := promhttp.HandlerFor(s.gatherer, promhttp.HandlerOpts{
+		ErrorLog:      slogPrinter{s},
+		ErrorHandling: promhttp.ContinueOnError,
+	})
+	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		start := time.Now()
+		rec := recorderPool.Get().(*recorder)
+		rec.ResponseWriter, rec.status, rec.bytes = w, 0, 0
+		route, name := routeOf(r.URL.Path)
+		defer func() {
+			if p := recover(); p != nil {
+				if p == http.ErrAbortHandler {
+					panic(p)
+				}
+				s.log.Error("handler panicked", "path", r.URL.Path, "panic", fmt.Sprint(p), "stack", string(debug.Stack()))
+				if rec.status == 0 {
+					plain(rec, http.StatusInternalServerError, "internal error")
+				}
+			}
+			s.finish(rec, r, route, start)
+			rec.ResponseWriter = nil
+			recorderPool.Put(rec)
+		}()
+
+		h := rec.Header()
+		h["X-Content-Type-Options"] = hdrNosniff
+		if route == routeOther {
+			plain(rec, http.StatusNotFound, "not found: "+quoteValue(r.URL.Path))
+			return
+		}
+		if r.Method != http.MethodGet && r.Method != http.MethodHead {
+			h["Allow"] = hdrAllow
+			plain(rec, http.StatusMethodNotAllowed, "method "+quoteValue(r.Method)+" not allowed: use GET or HEAD")
+			return
+		}
+		switch route {
+		case routeHealth:
+			s.serveHealth(rec, r)
+		case routeMetrics:
+			h["Cache-Control"] = hdrNoStore
+			metricsHandler.ServeHTTP(rec, r)
+		case routeAdhoc:
+			s.serveAdhoc(rec, r)
+		default:
+			s.serveBundleFile(rec, r, name)
+		}
+	})
+}
+
+// routeOf maps a path to its route and, for bundle files, the file name.
+func routeOf(p string) (route, name string) {
+	switch p {
+	case "/", "/index.html":
+		return routeIndex, "index.html"
+	case "/feeds.json":
+		return routeFeeds, "feeds.json"
+	case "/healthz":
+		return routeHealth, ""
+	case "/metrics":
+		return routeMetrics, ""
+	case AdhocPath:
+		return routeAdhoc, ""
+	}
+	if !strings.HasSuffix(p, ".ics") {
+		return routeOther, ""
+	}
+	name = strings.TrimPrefix(p, "/feeds/")
+	if name == p {
+		name = p[1:]
+	}
+	if name == ".ics" || strings.ContainsAny(name, "/\\") {
+		return routeOther, ""
+	}
+	return routeFeed, name
+}
+
+// finish records the request in metrics and the access log.
+func (s *Server) finish(rec *recorder, r *http.Request, route string, start time.Time) {
+	if rec.status == 0 {
+		rec.status = http.StatusOK
+	}
+	d := time.Since(start)
+	s.metrics.request(route, rec.status, d)
+	ctx := r.Context()
+	if s.access.Enabled(ctx, slog.LevelInfo) {
+		s.access.LogAttrs(ctx, slog.LevelInfo, "request",
+			slog.String("method", r.Method),
+			slog.String("path", r.URL.Path),
+			slog.String("query", truncate(r.URL.RawQuery, 256)),
+			slog.String("route", route),
+			slog.Int("status", rec.status),
+			slog.Int64("bytes", rec.bytes),
+			slog.Duration("duration", d),
+			slog.String("remote", r.RemoteAddr),
+			slog.String("user_agent", truncate(r.UserAgent(), 256)),
+		)
+	}
+}
+
+func truncate(s string, n int) string {
+	if len(s) > n {
+		return s[:n]
+	}
+	return s
+}
+
+// serveBundleFile serves one file of the current snapshot.
+func (s *Server) serveBundleFile(w http.ResponseWriter, r *http.Request, name string) {
+	snap := s.snap.Load()
+	if snap == nil {
+		w.Header()["Retry-After"] = hdrRetryAfter
+		plain(w, http.StatusServiceUnavailable, "feeds are being built; try again shortly")
+		return
+	}
+	a := snap.files[name]
+	if a == nil {
+		plain(w, http.StatusNotFound, "no such feed: "+quoteValue(name))
+		return
+	}
+	s.serveAsset(w, r, a)
+}
+
+// serveAsset writes a with its validators; http.ServeContent answers
+// conditional requests (If-None-Match against the ETag set here,
+// If-Modified-Since against modTime), HEAD and Range.
+func (s *Server) serveAsset(w http.ResponseWriter, r *http.Request, a *asset) {
+	h := w.Header()
+	h["Content-Type"] = a.contentType
+	h["Cache-Control"] = s.cacheControl
+	if a.cors {
+		h["Access-Control-Allow-Origin"] = hdrCORS
+	}
+	if a.disposition != nil {
+		h["Content-Disposition"] = a.disposition
+	}
+	body := a.data
+	if a.gz != nil {
+		h["Vary"] = hdrVary
+		if acceptsGzip(r.Header.Get("Accept-Encoding")) {
+			body = a.gz
+			h["Etag"] = a.gzETag
+			h["Content-Encoding"] = hdrGzip
+		} else {
+			h["Etag"] = a.etag
+		}
+	} else {
+		h["Etag"] = a.etag
+	}
+	http.ServeContent(w, r, "", a.modTime, bytes.NewReader(body))
+}
+
+// health is the /healthz body.
+type health struct {
+	Status      string     `json:"status"` // "ok", "stale" (last refresh failed), "starting", "failing"
+	Built       *time.Time `json:"built,omitempty"`
+	LastSuccess *time.Time `json:"last_success,omitempty"`
+	LastAttempt *time.Time `json:"last_attempt,omitempty"`
+	LastError   string     `json:"last_error,omitempty"`
+	NextRefresh time.Time  `json:"next_refresh"`
+	Feeds       int        `json:"feeds"`
+	Events      int        `json:"events"`
+}
+
+func (s *Server) serveHealth(w http.ResponseWriter, r *http.Request) {
+	snap := s.snap.Load()
+	s.healthMu.Lock()
+	hb := health{NextRefresh: s.sched.Next().UTC()}
+	if !s.lastSuccess.IsZero() {
+		t := s.lastSuccess.UTC()
+		hb.LastSuccess = &t
+	}
+	if !s.lastAttempt.IsZero() {
+		t := s.lastAttempt.UTC()
+		hb.LastAttempt = &t
+	}
+	if s.lastErr != nil {
+		hb.LastError = oneLine(s.lastErr.Error())
+	}
+	failed := s.lastErr != nil
+	s.healthMu.Unlock()
+
+	code := http.StatusOK
+	switch {
+	case snap == nil && failed:
+		hb.Status, code = "failing", http.StatusServiceUnavailable
+	case snap == nil:
+		hb.Status, code = "starting", http.StatusServiceUnavailable
+	case failed:
+		hb.Status = "stale"
+	default:
+		hb.Status = "ok"
+	}
+	if snap != nil {
+		t := snap.built.UTC()
+		hb.Built, hb.Feeds, hb.Events = &t, snap.feeds, snap.events
+	}
+	body, _ := json.MarshalIndent(hb, "", "  ") // plain struct: cannot fail
+	h := w.Header()
+	h.Set("Content-Type", "application/json")
+	h["Cache-Control"] = hdrNoStore
+	h.Set("Content-Length", strconv.Itoa(len(body)+1))
+	w.WriteHeader(code)
+	if r.Method != http.MethodHead {
+		w.Write(append(body, '\n'))
+	}
+}
+
+// plain writes a one-line text/plain response that is never cached.
+func plain(w http.ResponseWriter, code int, msg string) {
+	h := w.Header()
+	h.Del("Etag")
+	h.Del("Content-Encoding")
+	h.Del("Content-Disposition")
+	h.Set("Content-Type", "text/plain; charset=utf-8")
+	h["Cache-Control"] = hdrNoStore
+	h.Set("Content-Length", strconv.Itoa(len(msg)+1))
+	w.WriteHeader(code)
+	w.Write([]byte(msg + "\n"))
+}
+
+// recorder notes the status and size of a response.
+type recorder struct {
+	http.ResponseWriter
+	status int
+	bytes  int64
+}
+
+var recorderPool = sync.Pool{New: func() any { return new(recorder) }}
+
+func (r *recorder) WriteHeader(code int) {
+	if r.status == 0 {
+		r.status = code
+	}
+	r.ResponseWriter.WriteHeader(code)
+}
+
+func (r *recorder) Write(p []byte) (int, error) {
+	if r.status == 0 {
+		r.status = http.StatusOK
+	}
+	n, err := r.ResponseWriter.Write(p)
+	r.bytes += int64(n)
+	return n, err
+}
+
+// Unwrap lets http.ResponseController reach the connection.
+func (r *recorder) Unwrap() http.ResponseWriter { return r.ResponseWriter }
+
+// slogPrinter passes promhttp's errors to the server's logger.
+type slogPrinter struct{ s *Server }
+
+func (p slogPrinter) Println(v ...any) { p.s.log.Error("metrics: " + fmt.Sprint(v...)) }
+
+var errAdhocBusy = errors.New("serve: too many ad-hoc feeds being built")

@@ -1,0 +1,449 @@
+// Package serve serves heliocal's feeds over HTTP: the index page, every
+// feed's .ics file, feeds.json, ad-hoc feeds for any place, /healthz and
+// /metrics. It holds the rendered publish.Bundle behind an atomic pointer and
+// swaps it whole after each rebuild, so a request never sees a half-built
+// feed; a failed rebuild keeps the last good one.
+//
+// The package builds nothing itself: the command line injects the full
+// rebuild (Options.Build) and the ad-hoc builder (Options.Adhoc).
+package serve
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"log/slog"
+	"net"
+	"net/http"
+	"runtime"
+	"runtime/debug"
+	"sync"
+	"sync/atomic"
+	"time"
+
+	"github.com/prometheus/client_golang/prometheus"
+
+	"heliocal/config"
+	"heliocal/feed/publish"
+	"heliocal/feed/schedule"
+)
+
+// BuildFunc renders every configured feed. It must not modify a Bundle it
+// has returned before.
+type BuildFunc func(ctx context.Context) (*publish.Bundle, error)
+
+// AdhocFunc renders one ad-hoc feed (the .ics bytes) for a validated query.
+// An error that is (or wraps) a *QueryError is reported to the client as a
+// 400 with its message; any other error is a 500.
+type AdhocFunc func(ctx context.Context, q AdhocQuery) ([]byte, error)
+
+// Defaults of Options.
+const (
+	DefaultAdhocMaxDays      = 400
+	DefaultAdhocDefaultDays  = 365
+	DefaultAdhocCacheEntries = 256
+	DefaultAdhocCacheBytes   = 64 << 20
+	DefaultAdhocTimeout      = 30 * time.Second
+	DefaultAdhocMinYear      = 1900
+	DefaultAdhocMaxYear      = 2100
+	DefaultReadHeaderTimeout = 5 * time.Second
+	DefaultReadTimeout       = 10 * time.Second
+	DefaultWriteTimeout      = 60 * time.Second
+	DefaultIdleTimeout       = 120 * time.Second
+	DefaultMaxHeaderBytes    = 16 << 10
+	DefaultShutdownTimeout   = 20 * time.Second
+	DefaultRetryMin          = 10 * time.Second
+	DefaultRetryMax          = 5 * time.Minute
+
+	// Cache-Control max-age is the refresh interval, kept within these.
+	minMaxAge = time.Minute
+	maxMaxAge = 24 * time.Hour
+)
+
+// Options configure a Server. Build is required; every other zero value
+// means the documented default.
+type Options struct {
+	// Logger receives lifecycle and error messages; nil discards them.
+	Logger *slog.Logger
+	// AccessLogger receives one line per request at info level; nil means
+	// Logger. Give a logger whose handler discards to turn access logs off.
+	AccessLogger *slog.Logger
+
+	// Registerer and Gatherer are where the metrics go and what /metrics
+	// shows. Both nil: a private registry with Go and process metrics.
+	Registerer prometheus.Registerer
+	Gatherer   prometheus.Gatherer
+
+	// Build renders every feed; called at start, on schedule and by Refresh.
+	Build BuildFunc
+
+	// Adhoc renders an ad-hoc feed; nil turns the ad-hoc route off (404).
+	Adhoc AdhocFunc
+	// ParseKind validates one event kind of the ad-hoc "kinds" parameter
+	// and returns its canonical spelling; nil means the configuration's
+	// vocabulary (config.ParseKind). Its error message becomes the 400
+	// response, after the parameter and value.
+	ParseKind func(kind string) (string, error)
+	// AdhocDefaultKinds are used when the query has no "kinds"; empty makes
+	// the parameter required. Each must pass ParseKind.
+	AdhocDefaultKinds []string
+	AdhocMaxDays      int           // longest window, default 400
+	AdhocDefaultDays  int           // window without "days", default 365
+	AdhocMinYear      int           // earliest year of a window, default 1900
+	AdhocMaxYear      int           // latest year of a window, default 2100
+	AdhocCacheEntries int           // cached ad-hoc feeds, default 256
+	AdhocCacheBytes   int           // and their total size, default 64 MiB
+	AdhocConcurrency  int           // ad-hoc builds at once, default GOMAXPROCS
+	AdhocTimeout      time.Duration // one ad-hoc build, default 30s
+
+	// Schedule is the refresh's cron expression (default "15 3 * * *") read
+	// in ScheduleZone (nil: the server's zone).
+	Schedule     string
+	ScheduleZone *time.Location
+	// RefreshInterval sets Cache-Control max-age (kept within 1m..24h);
+	// zero means the schedule's interval.
+	RefreshInterval time.Duration
+	// RetryMin and RetryMax bound the back-off between attempts while no
+	// build has ever succeeded (default 10s doubling up to 5m).
+	RetryMin, RetryMax time.Duration
+
+	// HTTP server limits (see net/http.Server); zero means the default.
+	ReadHeaderTimeout time.Duration // 5s
+	ReadTimeout       time.Duration // 10s
+	WriteTimeout      time.Duration // 60s
+	IdleTimeout       time.Duration // 120s
+	MaxHeaderBytes    int           // 16 KiB
+	// ShutdownTimeout bounds the graceful shutdown: in-flight requests and a
+	// running refresh get this long to finish (default 20s).
+	ShutdownTimeout time.Duration
+}
+
+// Server serves the feeds. Create it with New, then call Run.
+type Server struct {
+	opts     Options
+	log      *slog.Logger
+	access   *slog.Logger
+	gatherer prometheus.Gatherer
+	metrics  *metrics
+	sched    *schedule.Scheduler
+	handler  http.Handler
+	limits   *adhocLimits
+	cache    *adhocCache
+	adhocSem chan struct{}
+	flights  flightGroup
+
+	cacheControl []string
+	snap         atomic.Pointer[snapshot]
+	now          func() time.Time // time.Now; tests fix "today"
+
+	buildMu sync.Mutex // serialises builds, so an older build never overwrites a newer one
+	build   BuildFunc  // guarded by buildMu
+
+	healthMu    sync.Mutex
+	lastAttempt time.Time
+	lastSuccess time.Time
+	lastErr     error
+
+	runMu   sync.Mutex
+	running bool
+}
+
+// New checks opts and returns a Server. It builds nothing yet.
+func New(opts Options) (*Server, error) {
+	if opts.Build == nil {
+		return nil, errors.New("serve: Options.Build is required")
+	}
+	if opts.ParseKind == nil {
+		opts.ParseKind = parseKind
+	}
+	setDefault(&opts.AdhocMaxDays, DefaultAdhocMaxDays)
+	setDefault(&opts.AdhocDefaultDays, min(DefaultAdhocDefaultDays, opts.AdhocMaxDays))
+	setDefault(&opts.AdhocMinYear, DefaultAdhocMinYear)
+	setDefault(&opts.AdhocMaxYear, DefaultAdhocMaxYear)
+	setDefault(&opts.AdhocCacheEntries, DefaultAdhocCacheEntries)
+	setDefault(&opts.AdhocCacheBytes, DefaultAdhocCacheBytes)
+	setDefault(&opts.AdhocConcurrency, runtime.GOMAXPROCS(0))
+	setDefault(&opts.AdhocTimeout, DefaultAdhocTimeout)
+	setDefault(&opts.RetryMin, DefaultRetryMin)
+	setDefault(&opts.RetryMax, DefaultRetryMax)
+	setDefault(&opts.ReadHeaderTimeout, DefaultReadHeaderTimeout)
+	setDefault(&opts.ReadTimeout, DefaultReadTimeout)
+	setDefault(&opts.WriteTimeout, DefaultWriteTimeout)
+	setDefault(&opts.IdleTimeout, DefaultIdleTimeout)
+	setDefault(&opts.MaxHeaderBytes, DefaultMaxHeaderBytes)
+	setDefault(&opts.ShutdownTimeout, DefaultShutdownTimeout)
+	switch {
+	case opts.AdhocDefaultDays < 1 || opts.AdhocDefaultDays > opts.AdhocMaxDays:
+		return nil, fmt.Errorf("serve: Options.AdhocDefaultDays %d must be within 1..AdhocMaxDays (%d)", opts.AdhocDefaultDays, opts.AdhocMaxDays)
+	case opts.AdhocMinYear > opts.AdhocMaxYear:
+		return nil, fmt.Errorf("serve: Options.AdhocMinYear %d is after AdhocMaxYear %d", opts.AdhocMinYear, opts.AdhocMaxYear)
+	case opts.RetryMin > opts.RetryMax:
+		return nil, fmt.Errorf("serve: Options.RetryMin %v is longer than RetryMax %v", opts.RetryMin, opts.RetryMax)
+	}
+
+	s := &Server{opts: opts, build: opts.Build, now: time.Now}
+	s.log = opts.Logger
+	if s.log == nil {
+		s.log = slog.New(slog.DiscardHandler)
+	}
+	s.access = opts.AccessLogger
+	if s.access == nil {
+		s.access = s.log
+	}
+
+	var err error
+	var reg prometheus.Registerer
+	if reg, s.gatherer, err = registry(opts.Registerer, opts.Gatherer); err != nil {
+		return nil, err
+	}
+	if s.metrics, err = newMetrics(reg); err != nil {
+		return nil, err
+	}
+
+	s.sched, err = schedule.New(func(ctx context.Context) error {
+		return s.refresh(ctx, triggerSchedule, nil)
+	}, schedule.Options{Spec: opts.Schedule, Location: opts.ScheduleZone, Logger: s.log})
+	if err != nil {
+		return nil, fmt.Errorf("serve: Options.Schedule: %w", err)
+	}
+	interval := opts.RefreshInterval
+	if interval <= 0 {
+		interval, _ = schedule.Interval(s.sched.Spec(), s.sched.Location(), time.Now()) // spec already checked
+	}
+	interval = min(max(interval, minMaxAge), maxMaxAge)
+	s.cacheControl = hdr(fmt.Sprintf("public, max-age=%d", int(interval.Seconds())))
+
+	s.limits = &adhocLimits{
+		parseKind:   opts.ParseKind,
+		maxDays:     opts.AdhocMaxDays,
+		defaultDays: opts.AdhocDefaultDays,
+		minYear:     opts.AdhocMinYear,
+		maxYear:     opts.AdhocMaxYear,
+		zones:       &zoneCache{},
+	}
+	if len(opts.AdhocDefaultKinds) > 0 {
+		joined := ""
+		for i, k := range opts.AdhocDefaultKinds {
+			if i > 0 {
+				joined += ","
+			}
+			joined += k
+		}
+		if s.limits.defaultKinds, err = parseKinds(joined, opts.ParseKind); err != nil {
+			return nil, fmt.Errorf("serve: Options.AdhocDefaultKinds: %w", err)
+		}
+	}
+	s.cache = newAdhocCache(opts.AdhocCacheEntries, opts.AdhocCacheBytes)
+	s.adhocSem = make(chan struct{}, opts.AdhocConcurrency)
+	s.handler = s.newHandler()
+	return s, nil
+}
+
+// parseKind is the default Options.ParseKind: the configuration file's kind
+// vocabulary, in its canonical written form.
+func parseKind(s string) (string, error) {
+	k, err := config.ParseKind(s)
+	if err != nil {
+		return "", err
+	}
+	return k.String(), nil
+}
+
+func setDefault[T int | time.Duration](p *T, v T) {
+	if *p <= 0 {
+		*p = v
+	}
+}
+
+// Handler returns the HTTP handler, for tests or to mount elsewhere. It
+// serves 503 until the first build has succeeded.
+func (s *Server) Handler() http.Handler { return s.handler }
+
+// NextRefresh returns when the scheduled refresh runs next.
+func (s *Server) NextRefresh() time.Time { return s.sched.Next() }
+
+// Refresh rebuilds every feed with the current build function and swaps the
+// result in. On failure the served feeds are kept, and the error is logged,
+// counted and shown on /healthz.
+func (s *Server) Refresh(ctx context.Context) error {
+	return s.refresh(ctx, triggerManual, nil)
+}
+
+// Reload rebuilds every feed with a new build function (the configuration
+// was reloaded). Only if the build succeeds is its result served and the
+// function kept for later refreshes; otherwise the old feeds and the old
+// function stay, and the error is logged, counted and returned.
+func (s *Server) Reload(ctx context.Context, build BuildFunc) error {
+	if build == nil {
+		return errors.New("serve: Reload: nil build function")
+	}
+	return s.refresh(ctx, triggerReload, build)
+}
+
+// refresh runs a build (the current function, or next if non-nil) and swaps
+// in its result.
+func (s *Server) refresh(ctx context.Context, trigger string, next BuildFunc) (err error) {
+	s.buildMu.Lock()
+	defer s.buildMu.Unlock()
+	build := s.build
+	if next != nil {
+		build = next
+	}
+	start := time.Now()
+	snap, err := s.runBuild(ctx, build)
+	d := time.Since(start)
+	s.metrics.refreshSeconds.Observe(d.Seconds())
+
+	s.healthMu.Lock()
+	s.lastAttempt = start
+	s.lastErr = err
+	if err == nil {
+		s.lastSuccess = time.Now()
+	}
+	s.healthMu.Unlock()
+
+	if err != nil {
+		s.metrics.refreshes.WithLabelValues(trigger, "failure").Inc()
+		s.metrics.lastOK.Set(0)
+		if trigger != triggerSchedule { // the scheduler logs its own runs
+			s.log.Error("refresh failed; serving the previous feeds", "trigger", trigger, "err", err, "duration", d)
+		}
+		return err
+	}
+	s.snap.Store(snap)
+	s.cache.purge() // "today" has moved for ad-hoc feeds without a start
+	if next != nil {
+		s.build = next
+	}
+	s.metrics.refreshes.WithLabelValues(trigger, "success").Inc()
+	s.metrics.lastOK.Set(1)
+	s.metrics.lastSuccess.Set(float64(s.lastSuccessTime().UnixNano()) / 1e9)
+	s.metrics.feeds.Set(float64(snap.feeds))
+	s.metrics.events.Set(float64(snap.events))
+	s.log.Info("feeds refreshed", "trigger", trigger, "feeds", snap.feeds, "events", snap.events,
+		"files", len(snap.files), "duration", d)
+	return nil
+}
+
+func (s *Server) lastSuccessTime() time.Time {
+	s.healthMu.Lock()
+	defer s.healthMu.Unlock()
+	return s.lastSuccess
+}
+
+// runBuild calls build and prepares its bundle; a panic becomes an error.
+func (s *Server) runBuild(ctx context.Context, build BuildFunc) (snap *snapshot, err error) {
+	defer func() {
+		if r := recover(); r != nil {
+			s.log.Error("build panicked", "panic", fmt.Sprint(r), "stack", string(debug.Stack()))
+			snap, err = nil, fmt.Errorf("serve: build panicked: %v", r)
+		}
+	}()
+	b, err := build(ctx)
+	if err != nil {
+		return nil, err
+	}
+	return prepare(b, s.snap.Load(), time.Now())
+}
+
+// Run builds the feeds, serves HTTP on ln and refreshes on schedule until ctx
+// is cancelled; then it shuts down gracefully: it stops accepting, lets
+// in-flight requests and a running refresh finish within
+// Options.ShutdownTimeout, and returns nil. If the first build fails the
+// server still answers (503 on /healthz and the feed routes) and retries with
+// back-off until a build succeeds. Run closes ln. A Server runs once.
+func (s *Server) Run(ctx context.Context, ln net.Listener) error {
+	s.runMu.Lock()
+	if s.running {
+		s.runMu.Unlock()
+		ln.Close()
+		return errors.New("serve: Run called twice")
+	}
+	s.running = true
+	s.runMu.Unlock()
+
+	hs := &http.Server{
+		Handler:           s.handler,
+		ReadHeaderTimeout: s.opts.ReadHeaderTimeout,
+		ReadTimeout:       s.opts.ReadTimeout,
+		WriteTimeout:      s.opts.WriteTimeout,
+		IdleTimeout:       s.opts.IdleTimeout,
+		MaxHeaderBytes:    s.opts.MaxHeaderBytes,
+		ErrorLog:          slog.NewLogLogger(s.log.Handler(), slog.LevelWarn),
+		// Requests must outlive ctx: cancelling it starts the graceful
+		// shutdown, which lets them finish.
+		BaseContext: func(net.Listener) context.Context { return context.WithoutCancel(ctx) },
+	}
+	serveErr := make(chan error, 1)
+	go func() { serveErr <- hs.Serve(ln) }()
+	s.log.Info("serving", "addr", ln.Addr().String(), "next_refresh", s.sched.Next())
+
+	buildCtx, cancelBuild := context.WithCancel(ctx)
+	initialDone := make(chan struct{})
+	go func() {
+		defer close(initialDone)
+		s.initialBuild(buildCtx)
+	}()
+	s.sched.Start(ctx)
+
+	var runErr error
+	select {
+	case <-ctx.Done():
+		s.log.Info("shutting down", "timeout", s.opts.ShutdownTimeout)
+	case err := <-serveErr:
+		runErr = fmt.Errorf("serve: %w", err)
+		s.log.Error("server stopped", "err", err)
+	}
+
+	sctx, cancel := context.WithTimeout(context.WithoutCancel(ctx), s.opts.ShutdownTimeout)
+	defer cancel()
+	cancelBuild()
+	schedDone := make(chan error, 1)
+	go func() { schedDone <- s.sched.Stop(sctx) }()
+	if err := hs.Shutdown(sctx); err != nil {
+		hs.Close()
+		runErr = errors.Join(runErr, fmt.Errorf("serve: graceful shutdown: %w", err))
+	}
+	if err := <-schedDone; err != nil {
+		runErr = errors.Join(runErr, err)
+	}
+	<-initialDone
+	if runErr == nil {
+		s.log.Info("stopped")
+	}
+	return runErr
+}
+
+// ListenAndRun listens on the TCP address addr (e.g. ":8080") and calls Run.
+func (s *Server) ListenAndRun(ctx context.Context, addr string) error {
+	ln, err := net.Listen("tcp", addr)
+	if err != nil {
+		return fmt.Errorf("serve: listen: %w", err)
+	}
+	return s.Run(ctx, ln)
+}
+
+// initialBuild builds until one build has succeeded (here, on schedule or by
+// Reload), waiting RetryMin, then twice as long each time up to RetryMax.
+func (s *Server) initialBuild(ctx context.Context) {
+	wait := s.opts.RetryMin
+	trigger := triggerInitial
+	for {
+		if s.snap.Load() != nil {
+			return
+		}
+		err := s.refresh(ctx, trigger, nil)
+		if err == nil || ctx.Err() != nil {
+			return
+		}
+		s.log.Warn("no feeds to serve yet; retrying", "in", wait)
+		t := time.NewTimer(wait)
+		select {
+		case <-ctx.Done():
+			t.Stop()
+			return
+		case <-t.C:
+		}
+		wait = min(2*wait, s.opts.RetryMax)
+	}
+}

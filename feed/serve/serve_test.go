@@ -1,0 +1,519 @@
+package serve
+
+import (
+	"bytes"
+	"compress/gzip"
+	"context"
+	"crypto/sha256"
+	"encoding/hex"
+	"encoding/json"
+	"errors"
+	"io"
+	"log/slog"
+	"net/http"
+	"strings"
+	"sync"
+	"testing"
+	"time"
+
+	"github.com/prometheus/client_golang/prometheus"
+
+	"heliocal/feed/publish"
+)
+
+func TestRoutes(t *testing.T) {
+	s, _ := newTestServer(t, Options{Adhoc: adhocICS})
+	b := testBundle("a")
+	h := s.Handler()
+	for _, tc := range []struct {
+		path, file, ctype string
+		cors              bool
+	}{
+		{"/", "index.html", "text/html; charset=utf-8", false},
+		{"/index.html", "index.html", "text/html; charset=utf-8", false},
+		{"/feeds/meadowbrook-sun.ics", "meadowbrook-sun.ics", "text/calendar; charset=utf-8", true},
+		{"/meadowbrook-sun.ics", "meadowbrook-sun.ics", "text/calendar; charset=utf-8", true},
+		{"/feeds/kestrel-ridge-moon.ics", "kestrel-ridge-moon.ics", "text/calendar; charset=utf-8", true},
+		{"/feeds.json", "feeds.json", "application/json", true},
+		{"/feeds.json?v=2", "feeds.json", "application/json", true}, // cache-busting query ignored
+	} {
+		t.Run(tc.path, func(t *testing.T) {
+			r := get(t, h, "GET", tc.path)
+			if r.StatusCode != 200 {
+				t.Fatalf("status %d", r.StatusCode)
+			}
+			if got := body(t, r); got != string(b.File(tc.file).Data) {
+				t.Errorf("body differs from the bundle's %s", tc.file)
+			}
+			if got := r.Header.Get("Content-Type"); got != tc.ctype {
+				t.Errorf("Content-Type %q, want %q", got, tc.ctype)
+			}
+			if got := r.Header.Get("ETag"); got != `"`+b.File(tc.file).Checksum+`"` {
+				t.Errorf("ETag %q, want the quoted checksum", got)
+			}
+			if got := r.Header.Get("Last-Modified"); got != testBuilt.Format(http.TimeFormat) {
+				t.Errorf("Last-Modified %q", got)
+			}
+			if got := r.Header.Get("Cache-Control"); got != "public, max-age=86400" {
+				t.Errorf("Cache-Control %q, want the nightly refresh interval", got)
+			}
+			if got := r.Header.Get("X-Content-Type-Options"); got != "nosniff" {
+				t.Errorf("X-Content-Type-Options %q", got)
+			}
+			if got := r.Header.Get("Access-Control-Allow-Origin"); (got == "*") != tc.cors {
+				t.Errorf("Access-Control-Allow-Origin %q, want CORS=%v", got, tc.cors)
+			}
+		})
+	}
+	for _, p := range []string{"/nope", "/feeds/", "/feeds/nope.ics", "/feeds/../index.html", "/feeds/a/b.ics", "/.ics", "/feeds"} {
+		if r := get(t, h, "GET", p); r.StatusCode != 404 {
+			t.Errorf("GET %s: status %d, want 404", p, r.StatusCode)
+		}
+	}
+}
+
+func TestContentDisposition(t *testing.T) {
+	s, _ := newTestServer(t, Options{})
+	r := get(t, s.Handler(), "GET", "/feeds/meadowbrook-sun.ics")
+	if got, want := r.Header.Get("Content-Disposition"), `inline; filename="meadowbrook-sun.ics"`; got != want {
+		t.Errorf("Content-Disposition %q, want %q", got, want)
+	}
+}
+
+func TestFeedsJSONSynthesised(t *testing.T) {
+	b := testBundle("a")
+	b.Files = b.Files[1:] // no feeds.json in this bundle
+	s, _ := newTestServer(t, Options{Build: func(context.Context) (*publish.Bundle, error) { return b, nil }})
+	r := get(t, s.Handler(), "GET", "/feeds.json")
+	var got []publish.FeedInfo
+	if err := json.Unmarshal([]byte(body(t, r)), &got); err != nil || r.StatusCode != 200 {
+		t.Fatalf("status %d, %v", r.StatusCode, err)
+	}
+	if len(got) != 2 || got[0].ID != "meadowbrook-sun" || got[0].Events != 40 {
+		t.Errorf("feeds.json = %+v", got)
+	}
+}
+
+func TestConditionalGET(t *testing.T) {
+	s, _ := newTestServer(t, Options{})
+	h := s.Handler()
+	first := get(t, h, "GET", "/feeds/meadowbrook-sun.ics")
+	etag := first.Header.Get("ETag")
+
+	r := get(t, h, "GET", "/feeds/meadowbrook-sun.ics", "If-None-Match", etag)
+	if r.StatusCode != http.StatusNotModified || body(t, r) != "" {
+		t.Errorf("If-None-Match with the current ETag: status %d, want 304 without body", r.StatusCode)
+	}
+	if r.Header.Get("ETag") != etag || r.Header.Get("Cache-Control") == "" {
+		t.Errorf("304 lacks ETag or Cache-Control: %v", r.Header)
+	}
+	if r := get(t, h, "GET", "/feeds/meadowbrook-sun.ics", "If-None-Match", `"0000"`); r.StatusCode != 200 {
+		t.Errorf("If-None-Match with another ETag: status %d, want 200", r.StatusCode)
+	}
+	if r := get(t, h, "GET", "/feeds/meadowbrook-sun.ics", "If-None-Match", `"0000", `+etag); r.StatusCode != 304 {
+		t.Errorf("If-None-Match list containing the ETag: status %d, want 304", r.StatusCode)
+	}
+
+	since := testBuilt.Add(time.Hour).Format(http.TimeFormat)
+	if r := get(t, h, "GET", "/feeds/meadowbrook-sun.ics", "If-Modified-Since", since); r.StatusCode != 304 {
+		t.Errorf("If-Modified-Since after Last-Modified: status %d, want 304", r.StatusCode)
+	}
+	before := testBuilt.Add(-time.Hour).Format(http.TimeFormat)
+	if r := get(t, h, "GET", "/feeds/meadowbrook-sun.ics", "If-Modified-Since", before); r.StatusCode != 200 {
+		t.Errorf("If-Modified-Since before Last-Modified: status %d, want 200", r.StatusCode)
+	}
+	// RFC 9110 §13.1.3: If-Modified-Since is ignored when If-None-Match is present.
+	if r := get(t, h, "GET", "/feeds/meadowbrook-sun.ics", "If-None-Match", `"0000"`, "If-Modified-Since", since); r.StatusCode != 200 {
+		t.Errorf("non-matching If-None-Match with If-Modified-Since: status %d, want 200", r.StatusCode)
+	}
+	// The gzip variant has its own ETag, and revalidates with it.
+	gz := get(t, h, "GET", "/feeds/meadowbrook-sun.ics", "Accept-Encoding", "gzip")
+	gzTag := gz.Header.Get("ETag")
+	if gzTag == etag || !strings.HasSuffix(gzTag, `-gz"`) {
+		t.Errorf("gzip ETag %q, want distinct from %q with -gz suffix", gzTag, etag)
+	}
+	if r := get(t, h, "GET", "/feeds/meadowbrook-sun.ics", "Accept-Encoding", "gzip", "If-None-Match", gzTag); r.StatusCode != 304 {
+		t.Errorf("If-None-Match with the gzip ETag: status %d, want 304", r.StatusCode)
+	}
+}
+
+func TestGzip(t *testing.T) {
+	s, _ := newTestServer(t, Options{})
+	h := s.Handler()
+	want := testBundle("a").File("meadowbrook-sun.ics").Data
+	for _, tc := range []struct {
+		accept string
+		gz     bool
+	}{
+		{"gzip", true},
+		{"gzip, deflate, br", true},
+		{"br;q=1.0, gzip;q=0.8", true},
+		{"x-gzip", true},
+		{"*", true},
+		{"", false},
+		{"identity", false},
+		{"gzip;q=0", false},
+		{"br, *;q=0", false},
+		{"*;q=0.5, gzip;q=0", false},
+		{"deflate", false},
+	} {
+		r := get(t, h, "GET", "/feeds/meadowbrook-sun.ics", "Accept-Encoding", tc.accept)
+		if r.Header.Get("Vary") != "Accept-Encoding" {
+			t.Errorf("Accept-Encoding %q: Vary %q", tc.accept, r.Header.Get("Vary"))
+		}
+		raw := []byte(body(t, r))
+		if got := r.Header.Get("Content-Encoding") == "gzip"; got != tc.gz {
+			t.Errorf("Accept-Encoding %q: gzip=%v, want %v", tc.accept, got, tc.gz)
+			continue
+		}
+		if tc.gz {
+			zr, err := gzip.NewReader(bytes.NewReader(raw))
+			if err != nil {
+				t.Fatal(err)
+			}
+			if raw, err = io.ReadAll(zr); err != nil {
+				t.Fatal(err)
+			}
+		}
+		if !bytes.Equal(raw, want) {
+			t.Errorf("Accept-Encoding %q: body differs from the feed", tc.accept)
+		}
+	}
+	// A tiny file is not worth compressing: sent as is, no Vary.
+	r := get(t, h, "GET", "/feeds/kestrel-ridge-moon.ics", "Accept-Encoding", "gzip")
+	if r.Header.Get("Content-Encoding") != "" {
+		t.Error("tiny feed was gzipped")
+	}
+}
+
+func TestGzipReusedForUnchangedFiles(t *testing.T) {
+	s, b := newTestServer(t, Options{})
+	before := s.snap.Load().files["meadowbrook-sun.ics"].gz
+	b.set(testBundle("a"), nil) // same bytes, a new Bundle
+	if err := s.Refresh(t.Context()); err != nil {
+		t.Fatal(err)
+	}
+	after := s.snap.Load().files["meadowbrook-sun.ics"].gz
+	if len(before) == 0 || &before[0] != &after[0] {
+		t.Error("unchanged feed was compressed again")
+	}
+}
+
+func TestHEAD(t *testing.T) {
+	s, _ := newTestServer(t, Options{Adhoc: adhocICS})
+	h := s.Handler()
+	for _, p := range []string{"/", "/feeds/meadowbrook-sun.ics", "/feeds.json", "/healthz", "/at.ics?lat=47.5&lon=13&tz=Europe/Vienna&kinds=sunrise"} {
+		full := get(t, h, "GET", p)
+		r := get(t, h, "HEAD", p)
+		if r.StatusCode != 200 || body(t, r) != "" {
+			t.Errorf("HEAD %s: status %d, want 200 without body", p, r.StatusCode)
+		}
+		if r.Header.Get("Content-Length") != full.Header.Get("Content-Length") || r.Header.Get("Content-Length") == "" {
+			t.Errorf("HEAD %s: Content-Length %q, GET has %q", p, r.Header.Get("Content-Length"), full.Header.Get("Content-Length"))
+		}
+	}
+}
+
+func TestMethodNotAllowed(t *testing.T) {
+	s, _ := newTestServer(t, Options{Adhoc: adhocICS})
+	for _, m := range []string{"POST", "PUT", "DELETE", "OPTIONS", "PATCH"} {
+		for _, p := range []string{"/", "/feeds/meadowbrook-sun.ics", "/at.ics", "/healthz", "/metrics"} {
+			r := get(t, s.Handler(), m, p)
+			if r.StatusCode != http.StatusMethodNotAllowed || r.Header.Get("Allow") != "GET, HEAD" {
+				t.Errorf("%s %s: status %d Allow %q, want 405 with Allow: GET, HEAD", m, p, r.StatusCode, r.Header.Get("Allow"))
+			}
+		}
+	}
+}
+
+func TestHealthz(t *testing.T) {
+	reg := prometheus.NewRegistry()
+	b := &builder{err: errors.New("config: sites[0].latitude: must be within -90..90")}
+	s, err := New(Options{Build: b.build, Logger: quiet(), Registerer: reg, Gatherer: reg, ScheduleZone: time.UTC})
+	if err != nil {
+		t.Fatal(err)
+	}
+	check := func(wantCode int, wantStatus string) health {
+		t.Helper()
+		r := get(t, s.Handler(), "GET", "/healthz")
+		var hb health
+		if err := json.Unmarshal([]byte(body(t, r)), &hb); err != nil {
+			t.Fatal(err)
+		}
+		if r.StatusCode != wantCode || hb.Status != wantStatus {
+			t.Errorf("healthz %d %q, want %d %q", r.StatusCode, hb.Status, wantCode, wantStatus)
+		}
+		if r.Header.Get("Cache-Control") != "no-store" {
+			t.Error("healthz may be cached")
+		}
+		return hb
+	}
+	check(503, "starting")
+	if r := get(t, s.Handler(), "GET", "/feeds/meadowbrook-sun.ics"); r.StatusCode != 503 || r.Header.Get("Retry-After") == "" {
+		t.Errorf("feed before the first build: status %d, want 503 with Retry-After", r.StatusCode)
+	}
+
+	s.Refresh(t.Context())
+	hb := check(503, "failing")
+	if !strings.Contains(hb.LastError, "sites[0].latitude") || hb.LastSuccess != nil {
+		t.Errorf("failing healthz = %+v", hb)
+	}
+
+	b.set(testBundle("a"), nil)
+	s.Refresh(t.Context())
+	hb = check(200, "ok")
+	if hb.LastSuccess == nil || hb.Feeds != 2 || hb.Events != 40 || hb.LastError != "" || hb.Built == nil || !hb.Built.Equal(testBuilt) {
+		t.Errorf("ok healthz = %+v", hb)
+	}
+	good := *hb.LastSuccess
+
+	b.set(nil, errors.New("disk full"))
+	s.Refresh(t.Context())
+	hb = check(200, "stale")
+	if hb.LastError != "disk full" || hb.LastSuccess == nil || !hb.LastSuccess.Equal(good) {
+		t.Errorf("stale healthz = %+v", hb)
+	}
+}
+
+func TestFailedRefreshKeepsFeeds(t *testing.T) {
+	s, b := newTestServer(t, Options{})
+	h := s.Handler()
+	paths := []string{"/", "/feeds/meadowbrook-sun.ics", "/feeds/kestrel-ridge-moon.ics", "/feeds.json"}
+	snapshot := func() map[string]string {
+		m := map[string]string{}
+		for _, p := range paths {
+			for _, enc := range []string{"", "gzip"} {
+				r := get(t, h, "GET", p, "Accept-Encoding", enc)
+				m[p+enc] = r.Header.Get("ETag") + "\n" + r.Header.Get("Last-Modified") + "\n" + body(t, r)
+			}
+		}
+		return m
+	}
+	before := snapshot()
+	bad := testBundle("b")
+	bad.Files[3].Checksum = strings.Repeat("0", 64) // a corrupt bundle is a failed build too
+	for _, fail := range []func(){
+		func() { b.set(nil, errors.New("config: feeds[1].site: unknown site \"nowhere\"")) },
+		func() { b.set(nil, nil) },
+		func() { b.set(bad, nil) },
+		func() {
+			dup := testBundle("b")
+			dup.Files = append(dup.Files, dup.Files[0])
+			b.set(dup, nil)
+		},
+	} {
+		fail()
+		if err := s.Refresh(t.Context()); err == nil {
+			t.Fatal("refresh succeeded")
+		}
+		after := snapshot()
+		for k, v := range before {
+			if after[k] != v {
+				t.Errorf("%s changed after a failed refresh", k)
+			}
+		}
+	}
+}
+
+func TestBuildPanicIsAFailedRefresh(t *testing.T) {
+	calls := 0
+	s, _ := newTestServer(t, Options{Build: func(ctx context.Context) (*publish.Bundle, error) {
+		calls++
+		if calls > 1 {
+			panic("catalogue bug")
+		}
+		return testBundle("a"), nil
+	}})
+	if err := s.Refresh(t.Context()); err == nil || !strings.Contains(err.Error(), "catalogue bug") {
+		t.Fatalf("Refresh = %v, want the panic as an error", err)
+	}
+	if r := get(t, s.Handler(), "GET", "/feeds/meadowbrook-sun.ics"); r.StatusCode != 200 {
+		t.Errorf("status %d after a panicking build", r.StatusCode)
+	}
+}
+
+func TestReload(t *testing.T) {
+	s, old := newTestServer(t, Options{})
+	h := s.Handler()
+	// An invalid new configuration: refused, the old feeds and the old build stay.
+	err := s.Reload(t.Context(), func(context.Context) (*publish.Bundle, error) {
+		return nil, errors.New(`config: feeds[0].kinds[2]: unknown kind "sunrse"`)
+	})
+	if err == nil {
+		t.Fatal("Reload of a failing build succeeded")
+	}
+	if got := body(t, get(t, h, "GET", "/")); !strings.Contains(got, "feeds a") {
+		t.Errorf("index after a refused reload: %q", got)
+	}
+	s.Refresh(t.Context())
+	if old.calls != 2 {
+		t.Errorf("old build called %d times, want 2: a refused reload must keep it", old.calls)
+	}
+	// A valid one: served at once and kept for later refreshes.
+	next := &builder{b: testBundle("b")}
+	if err := s.Reload(t.Context(), next.build); err != nil {
+		t.Fatal(err)
+	}
+	if got := body(t, get(t, h, "GET", "/")); !strings.Contains(got, "feeds b") {
+		t.Errorf("index after reload: %q", got)
+	}
+	s.Refresh(t.Context())
+	if next.calls != 2 || old.calls != 2 {
+		t.Errorf("calls: new %d old %d; want the new build used after reload", next.calls, old.calls)
+	}
+	if err := s.Reload(t.Context(), nil); err == nil {
+		t.Error("Reload(nil) accepted")
+	}
+}
+
+// TestConcurrentSwaps: while bundles are swapped, every response is one
+// whole generation: its body hashes to its ETag and is one of the two.
+func TestConcurrentSwaps(t *testing.T) {
+	s, b := newTestServer(t, Options{})
+	h := s.Handler()
+	gens := map[string]bool{}
+	for _, rev := range []string{"a", "b"} {
+		gens[string(testBundle(rev).File("meadowbrook-sun.ics").Data)] = true
+	}
+	stop := make(chan struct{})
+	var wg sync.WaitGroup
+	for range 2 {
+		wg.Go(func() {
+			for {
+				select {
+				case <-stop:
+					return
+				default:
+				}
+				r := get(t, h, "GET", "/feeds/meadowbrook-sun.ics")
+				got := body(t, r)
+				sum := sha256.Sum256([]byte(got))
+				if !gens[got] || r.Header.Get("ETag") != `"`+hex.EncodeToString(sum[:])+`"` {
+					t.Error("response is not one whole generation of the feed")
+					return
+				}
+			}
+		})
+	}
+	for i := range 50 {
+		b.set(testBundle([]string{"a", "b"}[i%2]), nil)
+		if err := s.Refresh(t.Context()); err != nil {
+			t.Fatal(err)
+		}
+	}
+	close(stop)
+	wg.Wait()
+}
+
+func TestMetrics(t *testing.T) {
+	s, b := newTestServer(t, Options{Adhoc: adhocICS})
+	h := s.Handler()
+	get(t, h, "GET", "/feeds/meadowbrook-sun.ics")
+	get(t, h, "GET", "/feeds/nope.ics")
+	get(t, h, "GET", "/at.ics?lat=95&lon=0&tz=UTC&kinds=sunrise")
+	get(t, h, "GET", "/at.ics?lat=45&lon=0&tz=UTC&kinds=sunrise")
+	get(t, h, "GET", "/at.ics?lat=45&lon=0&tz=UTC&kinds=sunrise")
+	b.set(nil, errors.New("boom"))
+	s.Refresh(t.Context())
+	out := body(t, get(t, h, "GET", "/metrics"))
+	for _, want := range []string{
+		`heliocal_http_requests_total{code="200",route="feed"} 1`,
+		`heliocal_http_requests_total{code="404",route="feed"} 1`,
+		`heliocal_http_requests_total{code="400",route="adhoc"} 1`,
+		`heliocal_http_requests_total{code="200",route="adhoc"} 2`,
+		`heliocal_adhoc_cache_total{result="hit"} 1`,
+		`heliocal_adhoc_cache_total{result="miss"} 1`,
+		`heliocal_refreshes_total{result="success",trigger="manual"} 1`,
+		`heliocal_refreshes_total{result="failure",trigger="manual"} 1`,
+		`heliocal_refresh_duration_seconds_count 2`,
+		`heliocal_refresh_last_successful 0`,
+		`heliocal_feeds 2`,
+		`heliocal_events 40`,
+		`heliocal_http_request_duration_seconds_bucket{route="feed",le=`,
+	} {
+		if !strings.Contains(out, want) {
+			t.Errorf("/metrics lacks %s", want)
+		}
+	}
+	if strings.Contains(out, `heliocal_refresh_last_success_timestamp_seconds 0`) {
+		t.Error("last success timestamp not set")
+	}
+}
+
+func TestAccessLog(t *testing.T) {
+	var buf bytes.Buffer
+	var mu sync.Mutex
+	s, _ := newTestServer(t, Options{AccessLogger: slog.New(slog.NewJSONHandler(&lockedBuf{b: &buf, mu: &mu}, nil))})
+	req := get(t, s.Handler(), "GET", "/feeds/meadowbrook-sun.ics")
+	n := len(body(t, req))
+	var line map[string]any
+	if err := json.Unmarshal(buf.Bytes(), &line); err != nil {
+		t.Fatalf("access log %q: %v", buf.String(), err)
+	}
+	for k, want := range map[string]any{"msg": "request", "method": "GET", "path": "/feeds/meadowbrook-sun.ics",
+		"route": "feed", "status": 200.0, "bytes": float64(n)} {
+		if line[k] != want {
+			t.Errorf("access log %s = %v, want %v", k, line[k], want)
+		}
+	}
+	for _, k := range []string{"duration", "remote", "user_agent", "query"} {
+		if _, ok := line[k]; !ok {
+			t.Errorf("access log lacks %s", k)
+		}
+	}
+}
+
+type lockedBuf struct {
+	b  *bytes.Buffer
+	mu *sync.Mutex
+}
+
+func (l *lockedBuf) Write(p []byte) (int, error) {
+	l.mu.Lock()
+	defer l.mu.Unlock()
+	return l.b.Write(p)
+}
+
+func TestNewOptions(t *testing.T) {
+	reg := prometheus.NewRegistry()
+	build := func(context.Context) (*publish.Bundle, error) { return nil, nil }
+	for _, tc := range []struct {
+		name string
+		opts Options
+		want string
+	}{
+		{"no build", Options{}, "Options.Build"},
+		{"bad schedule", Options{Build: build, Schedule: "every night"}, `"every night"`},
+		{"bad default kinds", Options{Build: build, AdhocDefaultKinds: []string{"sunrise", "sunrse"}}, `kinds="sunrse"`},
+		{"default days", Options{Build: build, AdhocMaxDays: 30, AdhocDefaultDays: 60}, "AdhocDefaultDays"},
+		{"gatherer only", Options{Build: build, Gatherer: reg}, "Registerer"},
+	} {
+		if _, err := New(tc.opts); err == nil || !strings.Contains(err.Error(), tc.want) {
+			t.Errorf("%s: New error %v, want one naming %s", tc.name, err, tc.want)
+		}
+	}
+	// The same registry twice: the second server's metrics collide.
+	if _, err := New(Options{Build: build, Registerer: reg}); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := New(Options{Build: build, Registerer: reg}); err == nil {
+		t.Error("second server on the same registry: no error")
+	}
+}
+
+func TestCacheControlBounds(t *testing.T) {
+	for _, tc := range []struct {
+		opts Options
+		want string
+	}{
+		{Options{ScheduleZone: time.UTC}, "public, max-age=86400"},
+		{Options{Schedule: "0 */6 * * *", ScheduleZone: time.UTC}, "public, max-age=21600"},
+		{Options{RefreshInterval: time.Second}, "public, max-age=60"},
+		{Options{RefreshInterval: 7 * 24 * time.Hour}, "public, max-age=86400"},
+	} {
+		s, _ := newTestServer(t, tc.opts)
+		if got := get(t, s.Handler(), "GET", "/feeds.json").Header.Get("Cache-Control"); got != tc.want {
+			t.Errorf("%+v: Cache-Control %q, want %q", tc.opts, got, tc.want)
+		}
+	}
+}

@@ -7,7 +7,8 @@ import (
 
 // The apparent geocentric Sun: Meeus, Astronomical Algorithms 2nd ed.,
 // ch. 25 ("higher accuracy"): the VSOP87D Earth (ch. 32), λ = L + 180°,
-// β = −B, the conversion to the FK5 system (eq. 32.3), nutation in longitude
+// β = −B, the conversion to the FK5 system (eq. 32.3) and the IAU 2000
+// precession-rate correction (see precessionRateCorrection), nutation in longitude
 // (ch. 22) and the annual aberration −20.4898″/R (eq. 25.10), then right
 // ascension and declination with the true obliquity (eq. 13.3, 13.4). The
 // equation of time follows eq. 28.1–28.2.
@@ -83,8 +84,17 @@ func sunFK5(jde, L, B float64) (lambda, beta float64) {
 	beta = -B
 	lp := theta - (1.397*T+0.00031*T*T)*deg2rad
 	sl, cl := math.Sincos(lp)
-	return theta - 0.09033*arcsec2rad, beta + 0.03916*arcsec2rad*(cl-sl)
+	return theta - (0.09033+precessionRateCorrection*T)*arcsec2rad, beta + 0.03916*arcsec2rad*(cl-sl)
 }
+
+// precessionRateCorrection is the IAU 2000 correction to the rate of
+// precession in longitude, 0.29965″ per Julian century (Mathews, Herring &
+// Buffett 2002; adopted in IAU 2000 and kept in IAU 2006). VSOP87D's
+// equinox of date follows the older IAU 1976 rate, so without it the Sun's
+// longitude drifts from modern references by 0.3″ per century (7 s on a
+// season instant at 1900 or 2100); measured against ERFA's IAU 2006/2000A in
+// TestSunAgainstERFA.
+const precessionRateCorrection = 0.29965
 
 // sunApparentLongitude returns only the Sun's apparent longitude (radians,
 // [0, 2π)) at jde, as used by the season and cross-quarter solvers.

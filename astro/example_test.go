@@ -1,0 +1,187 @@
+package astro_test
+
+import (
+	"fmt"
+	"math"
+	"time"
+
+	"heliocal/astro"
+)
+
+// hms formats degrees of right ascension or sidereal time as hours,
+// minutes and seconds with prec decimals.
+func hms(deg float64, prec int) string {
+	s := deg / 15 * 3600
+	h := math.Floor(s / 3600)
+	s -= h * 3600
+	m := math.Floor(s / 60)
+	s -= m * 60
+	return fmt.Sprintf("%.0fh%02.0fm%0*.*fs", h, m, prec+3, prec, s)
+}
+
+// dms formats degrees as signed degrees, minutes and seconds.
+func dms(deg float64, prec int) string {
+	sign := "+"
+	if deg < 0 {
+		sign, deg = "-", -deg
+	}
+	s := deg * 3600
+	d := math.Floor(s / 3600)
+	s -= d * 3600
+	m := math.Floor(s / 60)
+	s -= m * 60
+	return fmt.Sprintf("%s%.0f°%02.0f′%0*.*f″", sign, d, m, prec+3, prec, s)
+}
+
+func ExampleJulianDay_meeus7a() {
+	// Meeus, Astronomical Algorithms 2nd ed., Example 7.a, p. 61:
+	// the launch of Sputnik 1, 1957 October 4.81 → JD 2436116.31.
+	t := time.Date(1957, 10, 4, 19, 26, 24, 0, time.UTC) // .81 day
+	fmt.Printf("JD %.2f\n", astro.JulianDay(t))
+	// Example 7.c, p. 64, the other way round.
+	fmt.Println(astro.TimeFromJulianDay(2436116.31).Format("2006-01-02 15:04:05"))
+	// Output:
+	// JD 2436116.31
+	// 1957-10-04 19:26:24
+}
+
+func ExampleMeanSiderealTime_meeus12a() {
+	// Meeus, Astronomical Algorithms 2nd ed., Example 12.a, p. 88:
+	// 1987 April 10, 0h UT → mean sidereal time 13h10m46.3668s, apparent
+	// 13h10m46.1351s (with the nutation of Example 22.a).
+	jd := 2446895.5
+	fmt.Println("mean    ", hms(astro.MeanSiderealTime(jd), 4))
+	fmt.Println("apparent", hms(astro.ApparentSiderealTime(jd, jd), 4))
+	// Example 12.b, p. 89: 1987 April 10, 19h21m00s UT → 8h34m57.0896s.
+	fmt.Println("19:21 UT", hms(astro.MeanSiderealTime(astro.JulianDay(time.Date(1987, 4, 10, 19, 21, 0, 0, time.UTC))), 4))
+	// Output:
+	// mean     13h10m46.3668s
+	// apparent 13h10m46.1351s
+	// 19:21 UT 8h34m57.0896s
+}
+
+func ExampleNutation_meeus22a() {
+	// Meeus, Astronomical Algorithms 2nd ed., Example 22.a, p. 148:
+	// 1987 April 10, 0h TD → Δψ = −3.788″, Δε = +9.443″,
+	// ε₀ = 23°26′27.407″, ε = 23°26′36.850″.
+	jde := 2446895.5
+	dpsi, deps := astro.Nutation(jde)
+	fmt.Printf("Δψ %+.3f″  Δε %+.3f″\n", dpsi*3600, deps*3600)
+	fmt.Println("ε₀", dms(astro.MeanObliquity(jde), 3))
+	fmt.Println("ε ", dms(astro.TrueObliquity(jde), 3))
+	// Output:
+	// Δψ -3.788″  Δε +9.443″
+	// ε₀ +23°26′27.407″
+	// ε  +23°26′36.850″
+}
+
+func ExampleSun_meeus25b() {
+	// Meeus, Astronomical Algorithms 2nd ed., Example 25.b, p. 169 (and
+	// p. 165): the Sun on 1992 October 13.0 TD with the complete VSOP87 →
+	// α = 13h13m30.749s, δ = −7°47′01.74″, R = 0.99760853 au. This package
+	// adds the IAU 2000 precession-rate correction (0.02″ here), so it
+	// prints α to 0.01 s and δ to 0.1″.
+	t, err := astro.TimeFromJulianEphemerisDay(2448908.5)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	s, err := astro.Sun(t)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Println("α", hms(s.RightAscension, 2))
+	fmt.Println("δ", dms(s.Declination, 1))
+	fmt.Printf("R %.7f au\n", s.Distance)
+	// Output:
+	// α 13h13m30.75s
+	// δ -7°47′01.7″
+	// R 0.9976085 au
+}
+
+func ExampleSun_equationOfTime28a() {
+	// Meeus, Astronomical Algorithms 2nd ed., Example 28.a, p. 184:
+	// 1992 October 13.0 TD → E = +13m42.6s (sundial fast).
+	t, err := astro.TimeFromJulianEphemerisDay(2448908.5)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	s, err := astro.Sun(t)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Println("E", s.EquationOfTime.Round(100*time.Millisecond))
+	// Output:
+	// E 13m42.6s
+}
+
+func ExampleSeasons_meeus27b() {
+	// Meeus, Astronomical Algorithms 2nd ed., Example 27.b, p. 180: the June
+	// solstice of 1962 at 21:24:42 TD (Dynamical Time; UT = TD − ΔT). This
+	// package finds 21:24:39 TD: it adds the IAU 2000 precession-rate
+	// correction (0.11″ of solar longitude in 1962, 2.7 s) that the book's
+	// VSOP87 of date lacks; TestMeeusSeasons checks the book within 5 s.
+	s, err := astro.Seasons(1962)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	jde, _ := astro.JulianEphemerisDay(s[1])
+	fmt.Println(astro.TimeFromJulianDay(jde).Round(time.Minute).Format("2006-01-02 15:04"), "TD")
+	// Output:
+	// 1962-06-21 21:25 TD
+}
+
+func ExampleEphemeris_SunDays() {
+	// Sunrise and sunset at an invented hillside vineyard near 48.2° N,
+	// 16.4° E, 180 m above sea level, on the first days of 2027 (local
+	// time, Europe/Vienna).
+	loc, err := time.LoadLocation("Europe/Vienna")
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	first := time.Date(2027, 1, 1, 0, 0, 0, 0, loc)
+	last := time.Date(2027, 1, 3, 0, 0, 0, 0, loc)
+	eph, err := astro.NewEphemeris(first, last)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	site := astro.Observer{Latitude: 48.2, Longitude: 16.4, Elevation: 180}
+	days, err := eph.SunDays(site, site.RiseSetAltitude(), loc, first, last)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	for _, d := range days {
+		fmt.Println(d.Date.Format("2006-01-02"), "rise", d.Rising[0].In(loc).Format("15:04"), "set", d.Setting[0].In(loc).Format("15:04"))
+	}
+	// Output:
+	// 2027-01-01 rise 07:42 set 16:13
+	// 2027-01-02 rise 07:42 set 16:14
+	// 2027-01-03 rise 07:42 set 16:15
+}
+
+func ExampleEphemeris_SunDays_polarNight() {
+	// At 78° N in mid-December the Sun stays below the horizon all day: the
+	// state says so instead of an error or an invented event.
+	first := time.Date(2027, 12, 21, 0, 0, 0, 0, time.UTC)
+	eph, err := astro.NewEphemeris(first, first)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	site := astro.Observer{Latitude: 78.2, Longitude: 15.6}
+	days, err := eph.SunDays(site, site.RiseSetAltitude(), time.UTC, first, first)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Println(days[0].Date.Format("2006-01-02"), days[0].State, len(days[0].Rising), len(days[0].Setting))
+	// Output:
+	// 2027-12-21 always-below 0 0
+}

@@ -17,24 +17,50 @@ type observance struct {
 
 // observances lists the offset changes of loc over [from, to], from Go's time
 // zone database: first one observance at from with From = To (the offset in
-// effect there), then one per transition after it. It walks
+// effect there), then one per change after it. It walks
 // time.Time.ZoneBounds and skips bounds where neither the offset nor the
 // abbreviation changes (Go reports such bounds, e.g. at year boundaries past
 // the last stored transition).
+//
+// An observance is DAYLIGHT when clocks go forward into it and STANDARD when
+// they go back, the way calendar clients expect. The tz database's own flag
+// is not used: for zones with "negative DST" (Europe/Dublin, whose legal
+// standard time is the summer time) it would mark winter as daylight time.
+// The initial observance takes its kind from the next change (up to a year
+// on); a change of abbreviation alone keeps the kind before it.
 func observances(loc *time.Location, from, to time.Time) []observance {
 	name, off := from.In(loc).Zone()
-	obs := []observance{{Start: from, From: off, To: off, Name: name, DST: from.In(loc).IsDST()}}
-	t := from
-	for {
-		_, end := t.In(loc).ZoneBounds()
-		if end.IsZero() || !end.After(t) || end.After(to) {
+	first := observance{Start: from, From: off, To: off, Name: name}
+	// The initial observance is daylight time if clocks next go back.
+	if o, _, ok := nextChange(loc, from, to.AddDate(1, 0, 0), func(_ string, o int) bool { return o != off }); ok {
+		first.DST = o < off
+	}
+	obs := []observance{first}
+	for t := from; ; {
+		o, at, ok := nextChange(loc, t, to, func(n string, o int) bool { return o != off || n != name })
+		if !ok {
 			return obs
 		}
-		lt := end.In(loc)
-		n, o := lt.Zone()
-		if o != off || n != name {
-			obs = append(obs, observance{Start: end, From: off, To: o, Name: n, DST: lt.IsDST()})
-			name, off = n, o
+		n, _ := at.In(loc).Zone()
+		dst := obs[len(obs)-1].DST
+		if o != off {
+			dst = o > off
+		}
+		obs = append(obs, observance{Start: at, From: off, To: o, Name: n, DST: dst})
+		name, off, t = n, o, at
+	}
+}
+
+// nextChange walks the zone bounds of loc after t, up to limit, and returns
+// the first one whose abbreviation and offset satisfy changed.
+func nextChange(loc *time.Location, t, limit time.Time, changed func(name string, off int) bool) (int, time.Time, bool) {
+	for {
+		_, end := t.In(loc).ZoneBounds()
+		if end.IsZero() || !end.After(t) || end.After(limit) {
+			return 0, time.Time{}, false
+		}
+		if n, o := end.In(loc).Zone(); changed(n, o) {
+			return o, end, true
 		}
 		t = end
 	}

@@ -155,6 +155,7 @@ func (sky *Sky) Entries(s *config.Site, feedID string, specs []config.KindSpec, 
 			continue
 		}
 		n0, m0 := len(col.events), len(col.notes)
+		col.maxLit = spec.MaxIllumination
 		if err := col.add(spec.Kind); err != nil {
 			return nil, fmt.Errorf("%s: %w", spec.Kind, err)
 		}

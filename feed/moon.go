@@ -2,21 +2,241 @@ package feed
 
 import (
 	"fmt"
+	"math"
+	"strings"
+	"time"
 
+	"heliocal/astro"
 	"heliocal/config"
 )
 
+// moonEphemeris builds the Moon's shared track on first use: feeds without
+// Moon kinds never pay for it.
+func (s *Sky) moonEphemeris() (*astro.MoonEphemeris, error) {
+	s.moonOnce.Do(func() {
+		s.moon, s.moonErr = astro.NewMoonEphemeris(s.from, s.to)
+	})
+	return s.moon, s.moonErr
+}
+
+var phaseKinds = map[string]astro.PhaseKind{
+	"new-moon":      astro.NewMoon,
+	"first-quarter": astro.FirstQuarter,
+	"full-moon":     astro.FullMoon,
+	"last-quarter":  astro.LastQuarter,
+}
+
+var phaseNames = [4]string{"new-moon", "first-quarter", "full-moon", "last-quarter"}
+
 // addMoon adds the Moon's kinds.
 func (c *collector) addMoon(k config.Kind) error {
-	return fmt.Errorf("kind %q is not computed yet", k.String())
+	switch k.Name {
+	case "new-moon", "first-quarter", "full-moon", "last-quarter", "moon-phases":
+		return c.phases(k)
+	case "moonrise", "moonset":
+		return c.moonRiseSet(k)
+	case "moon-transit":
+		return c.moonTransits(k)
+	case "dark-window":
+		return c.darkWindows(k)
+	}
+	return fmt.Errorf("kind %q has no computation", k.String())
+}
+
+// lit fills the illumination of a Moon event at its start.
+func lit(e *Event) error {
+	il, err := astro.MoonIllumination(e.Start)
+	if err != nil {
+		return err
+	}
+	e.Illuminated, e.Waxing = il.Fraction, il.Waxing
+	return nil
+}
+
+func (c *collector) phases(k config.Kind) error {
+	from, to := c.span(0)
+	ps, err := astro.MoonPhases(from, to)
+	if err != nil {
+		return err
+	}
+	for _, p := range ps {
+		name := phaseNames[p.Kind]
+		if k.Name != "moon-phases" && k.Name != name {
+			continue
+		}
+		e := Event{Kind: config.Kind{Name: name}, Start: p.Time, Date: localDate(p.Time, c.p.Location)}
+		if !c.inRange(e.Date) {
+			continue
+		}
+		if err := lit(&e); err != nil {
+			return err
+		}
+		c.events = append(c.events, e)
+	}
+	return nil
+}
+
+func (c *collector) moonRiseSet(k config.Kind) error {
+	me, err := c.sky.moonEphemeris()
+	if err != nil {
+		return err
+	}
+	days, err := me.MoonDays(c.p.Observer, c.p.Location, midnight(c.first, c.p.Location), midnight(c.last, c.p.Location))
+	if err != nil {
+		return err
+	}
+	rising := k.Name == "moonrise"
+	for _, d := range days {
+		date := civil(d.Date)
+		ts := d.Setting
+		if rising {
+			ts = d.Rising
+		}
+		if len(ts) == 0 {
+			state := d.State
+			if state == astro.Crosses {
+				// the Moon rises (or sets) about 50 minutes later each day,
+				// so about once a month a date has none
+				state = 0
+			}
+			c.notes = append(c.notes, Note{Kind: k, Date: date, State: state, Family: "moon-horizon:" + k.Name})
+			continue
+		}
+		for _, t := range ts {
+			e := Event{Kind: k, Start: t, Date: date, Direction: astro.Setting}
+			if rising {
+				e.Direction = astro.Rising
+			}
+			if err := lit(&e); err != nil {
+				return err
+			}
+			c.events = append(c.events, e)
+		}
+	}
+	return nil
+}
+
+func (c *collector) moonTransits(k config.Kind) error {
+	me, err := c.sky.moonEphemeris()
+	if err != nil {
+		return err
+	}
+	from, to := c.span(0)
+	ts, err := me.MoonTransits(c.p.Observer, from, to)
+	if err != nil {
+		return err
+	}
+	for _, t := range ts {
+		e := Event{Kind: k, Start: t.Time, Date: localDate(t.Time, c.p.Location), Altitude: t.Altitude}
+		if !c.inRange(e.Date) {
+			continue
+		}
+		if err := lit(&e); err != nil {
+			return err
+		}
+		c.events = append(c.events, e)
+	}
+	return nil
+}
+
+func (c *collector) darkWindows(k config.Kind) error {
+	me, err := c.sky.moonEphemeris()
+	if err != nil {
+		return err
+	}
+	nights, err := me.DarkWindows(c.p.Observer, c.p.Location, midnight(c.first, c.p.Location), midnight(c.last, c.p.Location), c.maxLit)
+	if err != nil {
+		return err
+	}
+	for _, n := range nights {
+		date := civil(n.Date)
+		if len(n.Windows) == 0 {
+			st := astro.AlwaysAbove // no astronomical night: the Sun stays above −18°
+			if n.State == astro.Moonlit {
+				st = astro.AlwaysBelow // dark enough, but the Moon is up and bright
+			}
+			c.notes = append(c.notes, Note{Kind: k, Date: date, State: st, Family: "dark-window"})
+			continue
+		}
+		for _, w := range n.Windows {
+			e := Event{Kind: k, Start: w.Start, End: w.End, Date: date, Illuminated: c.maxLit}
+			c.events = append(c.events, e)
+		}
+	}
+	return nil
+}
+
+func percent(f float64) string {
+	return fmt.Sprintf("%d %%", int(math.Round(f*100)))
+}
+
+func waxing(e Event) string {
+	if e.Waxing {
+		return "waxing"
+	}
+	return "waning"
 }
 
 // describeMoon gives the title and description of a Moon event.
 func describeMoon(s *config.Site, e Event) (string, string) {
-	return plainNames[e.Kind.Name], fmt.Sprintf("%s at %s.", plainNames[e.Kind.Name], where(s))
+	loc := s.TimeZone.Location
+	at := localClock(e.Start, loc)
+	title := plainNames[e.Kind.Name]
+	var b strings.Builder
+	switch e.Kind.Name {
+	case "new-moon", "first-quarter", "full-moon", "last-quarter":
+		meaning := map[string]string{
+			"new-moon":      "the Moon passes between the Earth and the Sun and is not seen; the darkest nights of the month are around now",
+			"first-quarter": "the Moon is 90° east of the Sun, half lit, and sets around midnight",
+			"full-moon":     "the Moon is opposite the Sun, fully lit, and up all night",
+			"last-quarter":  "the Moon is 90° west of the Sun, half lit, and rises around midnight",
+		}[e.Kind.Name]
+		fmt.Fprintf(&b, "%s at %s (%s UTC): %s.", title, at, e.Start.UTC().Format("2006-01-02 15:04:05"), meaning)
+	case "moonrise", "moonset":
+		title = fmt.Sprintf("%s (%s, %s lit)", title, waxing(e), percent(e.Illuminated))
+		fmt.Fprintf(&b, "%s at %s, %s: the Moon is %s, %s lit.\nUpper limb of the Moon on the horizon with standard refraction, seen from the site.",
+			plainNames[e.Kind.Name], at, where(s), waxing(e), percent(e.Illuminated))
+	case "moon-transit":
+		title = fmt.Sprintf("Moon highest, %s up", degrees(e.Altitude))
+		fmt.Fprintf(&b, "The Moon crosses the meridian at %s, %s, %s above the horizon (%s, %s lit).",
+			at, where(s), degrees(e.Altitude), waxing(e), percent(e.Illuminated))
+	case "dark-window":
+		title = fmt.Sprintf("Dark sky, %s", amount(e.End.Sub(e.Start).Round(time.Minute)))
+		fmt.Fprintf(&b, "Dark sky from %s to %s (%s), %s: the Sun is more than 18° below the horizon and ",
+			at, localClock(e.End, loc), amount(e.End.Sub(e.Start).Round(time.Minute)), where(s))
+		if e.Illuminated > 0 {
+			fmt.Fprintf(&b, "the Moon is down or less than %s lit.", percent(e.Illuminated))
+		} else {
+			b.WriteString("the Moon is below the horizon.")
+		}
+	default:
+		return e.Kind.String(), fmt.Sprintf("%s at %s, %s.", e.Kind, at, where(s))
+	}
+	return title, b.String()
 }
 
 // describeMoonNote gives the all-day entry for a date without a Moon event.
 func describeMoonNote(s *config.Site, n Note) (string, string) {
-	return n.Kind.String(), where(s)
+	var title string
+	switch n.Kind.Name {
+	case "moonrise", "moonset":
+		verb := map[string]string{"moonrise": "rise", "moonset": "set"}[n.Kind.Name]
+		switch n.State {
+		case astro.AlwaysAbove:
+			title = "The Moon stays above the horizon all day"
+		case astro.AlwaysBelow:
+			title = "The Moon stays below the horizon all day"
+		default:
+			title = fmt.Sprintf("No moon%s today", verb)
+		}
+	case "dark-window":
+		if n.State == astro.AlwaysAbove {
+			title = "No dark sky tonight: the Sun stays less than 18° below the horizon"
+		} else {
+			title = "No dark sky tonight: the Moon is up and bright all night"
+		}
+	default:
+		title = n.Kind.String()
+	}
+	return title, fmt.Sprintf("%s at %s on %s.", title, where(s), n.Date.Format("Monday 2 January 2006"))
 }

@@ -3,6 +3,7 @@ package feed
 import (
 	"fmt"
 	"sort"
+	"sync"
 	"time"
 
 	"heliocal/astro"
@@ -56,17 +57,23 @@ type Place struct {
 // Sky computes events for any place from one shared ephemeris. It is safe
 // for concurrent use.
 type Sky struct {
-	eph *astro.Ephemeris
+	from, to time.Time
+	eph      *astro.Ephemeris
+
+	moonOnce sync.Once
+	moon     *astro.MoonEphemeris
+	moonErr  error
 }
 
 // NewSky prepares the shared ephemeris for events on local dates first..last
 // (any zone): it adds two days of margin on both sides.
 func NewSky(first, last time.Time) (*Sky, error) {
-	eph, err := astro.NewEphemeris(first.AddDate(0, 0, -2), last.AddDate(0, 0, 3))
+	from, to := first.AddDate(0, 0, -2), last.AddDate(0, 0, 3)
+	eph, err := astro.NewEphemeris(from, to)
 	if err != nil {
 		return nil, err
 	}
-	return &Sky{eph: eph}, nil
+	return &Sky{from: from, to: to, eph: eph}, nil
 }
 
 // civil returns the date part of t as 00:00 UTC.
@@ -112,6 +119,7 @@ type collector struct {
 	events      []Event
 	notes       []Note
 	lengths     []time.Duration // day lengths for first-1..last, computed once
+	maxLit      float64         // dark-window: the Moon's largest illuminated fraction still dark
 }
 
 func (c *collector) inRange(d time.Time) bool {

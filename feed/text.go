@@ -29,7 +29,7 @@ func dirString(d astro.Direction) string {
 // localClock formats an instant as site-local clock time with the zone
 // abbreviation, e.g. "06:47:12 CET".
 func localClock(t time.Time, loc *time.Location) string {
-	return t.In(loc).Format("15:04:05 MST")
+	return t.Round(time.Second).In(loc).Format("15:04:05 MST")
 }
 
 // hm formats a duration as "9 h 25 m" (rounded to the minute).

@@ -188,7 +188,7 @@ func TestPublishDemoTwice(t *testing.T) {
 	if code != 0 {
 		t.Fatalf("second run: exit %d: %s", code, errOut)
 	}
-	if !strings.Contains(errOut, " 0 written") {
+	if !strings.Contains(errOut, "(0 written") {
 		t.Errorf("second run rewrote files: %s", errOut)
 	}
 }

@@ -229,9 +229,6 @@ func TestUIDsStableAcrossRebuilds(t *testing.T) {
 		out := map[string]string{}
 		for i := range cfg.Feeds {
 			f := &cfg.Feeds[i]
-			if hasMoon(f) {
-				continue // the Moon's kinds are covered with the Moon
-			}
 			cal, err := cat.Calendar(f)
 			if err != nil {
 				t.Fatal(err)
@@ -259,15 +256,6 @@ func TestUIDsStableAcrossRebuilds(t *testing.T) {
 	if shared < len(a)*9/10 {
 		t.Errorf("only %d of %d UIDs survive a one-day rebuild", shared, len(a))
 	}
-}
-
-func hasMoon(f *config.Feed) bool {
-	for _, k := range f.Kinds {
-		if k.Kind.IsMoon() {
-			return true
-		}
-	}
-	return false
 }
 
 // Options of a kind: an offset shifts the event and names it, a label
@@ -356,5 +344,105 @@ func TestDailySummary(t *testing.T) {
 	// Sunday of March): the summary's clock times change zone.
 	if !strings.Contains(entries[1].Description, "CET") || !strings.Contains(entries[3].Description, "CEST") {
 		t.Errorf("summaries around the clock change do not follow the zone:\n%s\n%s", entries[1].Description, entries[3].Description)
+	}
+}
+
+// A date without moonrise becomes an all-day note, never a missing or
+// invented event. Source: USNO one-year table 'Rise and Set for the Moon',
+// Ithaca NY (42 27 N, 76 30 W), 2015, fixed zone UTC−4: no moonrise on 10
+// March 2015 (row moon-0007).
+func TestNoMoonriseNote(t *testing.T) {
+	s := site(t, "ithaca", 42.45, -76.5, "Etc/GMT+4")
+	sk := sky(t, "2015-03-09", "2015-03-11")
+	specs := []config.KindSpec{{Kind: mustKinds(t, "moonrise")[0]}}
+	entries, err := sk.Entries(s, "moon", specs, date("2015-03-09"), date("2015-03-11"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var notes, rises int
+	for _, e := range entries {
+		if e.AllDay {
+			notes++
+			if e.Date.Format(time.DateOnly) != "2015-03-10" || e.Title != "No moonrise today" {
+				t.Errorf("note %q on %s, want \"No moonrise today\" on 2015-03-10", e.Title, e.Date.Format(time.DateOnly))
+			}
+		} else {
+			rises++
+		}
+	}
+	if notes != 1 || rises != 2 {
+		t.Errorf("%d notes and %d moonrises over 9–11 March, want 1 and 2", notes, rises)
+	}
+}
+
+// Full moon lands on its local date with the illumination in the text.
+// Source: USNO moon-phase data service, full moon 2020-01-10 19:21 UT (row
+// mp-0053); tolerance ±2 min (the table's minute rounding and the method).
+func TestFullMoonEntry(t *testing.T) {
+	sk := sky(t, "2020-01-01", "2020-01-31")
+	s := site(t, "south", -41.3, 174.8, "Pacific/Auckland") // UTC+13 in January: 11 January locally
+	events, _, err := sk.Events(PlaceOf(s), mustKinds(t, "moon-phases"), date("2020-01-01"), date("2020-01-31"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	ref := time.Date(2020, 1, 10, 19, 21, 0, 0, time.UTC)
+	found := false
+	var prev string
+	for _, e := range events {
+		if e.Kind.Name == prev {
+			t.Errorf("%s twice in a row", prev)
+		}
+		prev = e.Kind.Name
+		if e.Kind.Name != "full-moon" || e.Start.Sub(ref).Abs() > 12*time.Hour {
+			continue
+		}
+		found = true
+		if d := e.Start.Sub(ref).Abs(); d > 2*time.Minute {
+			t.Errorf("full moon %s, USNO %s", e.Start.Format(time.RFC3339), ref.Format(time.RFC3339))
+		}
+		if e.Date.Format(time.DateOnly) != "2020-01-11" {
+			t.Errorf("full moon on local date %s, want 2020-01-11 in Auckland", e.Date.Format(time.DateOnly))
+		}
+		if e.Illuminated < 0.99 {
+			t.Errorf("full moon %.3f lit", e.Illuminated)
+		}
+	}
+	if !found {
+		t.Error("no full moon near 2020-01-10 19:21 UT")
+	}
+}
+
+// A dark window lies inside astronomical night: never while the Sun is above
+// −18° (the definition of astronomical twilight; common practice).
+func TestDarkWindowsInsideAstronomicalNight(t *testing.T) {
+	s := site(t, "obs", 39.08, -105.42, "America/Denver")
+	sk := sky(t, "2027-01-01", "2027-02-28")
+	events, notes, err := sk.Events(PlaceOf(s), mustKinds(t, "dark-window", "astronomical-dusk", "astronomical-dawn"), date("2027-01-01"), date("2027-02-27"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var windows int
+	for _, e := range events {
+		if e.Kind.Name != "dark-window" {
+			continue
+		}
+		windows++
+		for _, t2 := range []time.Time{e.Start.Add(time.Second), e.End.Add(-time.Second)} {
+			h, err := sk.eph.SunAltitude(PlaceOf(s).Observer, t2)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if h > -18 {
+				t.Errorf("dark window %v..%v: Sun at %.4f° at %v", e.Start, e.End, h, t2)
+			}
+		}
+	}
+	if windows < 40 {
+		t.Errorf("%d dark windows in 58 winter nights at 39° N, want most nights", windows)
+	}
+	for _, n := range notes {
+		if n.Kind.Name == "dark-window" && n.State != astro.AlwaysBelow {
+			t.Errorf("%s: winter night at 39° N without astronomical night", n.Date.Format(time.DateOnly))
+		}
 	}
 }

@@ -1,0 +1,105 @@
+package publish
+
+import (
+	"bufio"
+	"context"
+	"fmt"
+	"os"
+	"strconv"
+	"strings"
+	"testing"
+	"time"
+
+	"heliocal/config"
+	"heliocal/feed"
+)
+
+// fleetConfig writes a configuration of n invented sites spread around ten
+// regions (jittered a little each), each with one feed of the daily kinds
+// over 400 days (30 back, 369 ahead).
+func fleetConfig(tb testing.TB, n int) *config.Config {
+	tb.Helper()
+	regions := []struct {
+		lat, lon float64
+		zone     string
+	}{
+		{48.2, 16.4, "Europe/Vienna"}, {-41.3, 173.0, "Pacific/Auckland"}, {39.1, -105.4, "America/Denver"},
+		{59.9, 10.7, "Europe/Oslo"}, {-23.5, -46.6, "America/Sao_Paulo"}, {35.7, 139.7, "Asia/Tokyo"},
+		{22.6, 88.4, "Asia/Kolkata"}, {-33.9, 151.2, "Australia/Sydney"}, {42.4, -76.5, "America/New_York"},
+		{-1.3, 36.8, "Africa/Nairobi"},
+	}
+	var b strings.Builder
+	b.WriteString("sites:\n")
+	for i := range n {
+		r := regions[i%len(regions)]
+		j := float64(i/len(regions)) * 0.017
+		fmt.Fprintf(&b, "  - {id: site-%04d, name: Fleet site %d, latitude: %.4f, longitude: %.4f, elevation: %d, timezone: %s}\n",
+			i, i, r.lat+j, r.lon+j, 10*(i%50), r.zone)
+	}
+	b.WriteString("feeds:\n")
+	for i := range n {
+		fmt.Fprintf(&b, "  - {id: site-%04d-daily, title: Fleet site %d daily sun, site: site-%04d, days_back: 30, days_ahead: 369,\n"+
+			"     kinds: [sunrise, sunset, civil-dawn, civil-dusk, golden-hour]}\n", i, i, i)
+	}
+	cfg, err := config.Parse(strings.NewReader(b.String()), "yaml")
+	if err != nil {
+		tb.Fatal(err)
+	}
+	return cfg
+}
+
+// peakRSS is the process's peak resident set (VmHWM), in bytes; 0 where
+// /proc is not there.
+func peakRSS() int64 {
+	f, err := os.Open("/proc/self/status")
+	if err != nil {
+		return 0
+	}
+	defer f.Close()
+	sc := bufio.NewScanner(f)
+	for sc.Scan() {
+		if v, ok := strings.CutPrefix(sc.Text(), "VmHWM:"); ok {
+			kb, _ := strconv.ParseInt(strings.TrimSpace(strings.TrimSuffix(strings.TrimSpace(v), "kB")), 10, 64)
+			return kb * 1024
+		}
+	}
+	return 0
+}
+
+// BenchmarkPublishFleet publishes n site-feeds × 400 days × the daily kinds
+// (sunrise, sunset, civil dawn and dusk, golden hour) to disk, from the
+// parsed configuration to the last file: catalogue, encoder, atomic writes,
+// feeds.json and index.html (without charts, as for any configuration over
+// MaxCharts sites). Target for n=1000 on a 2-core machine: ≤ 10 s and
+// ≤ 300 MB peak memory. Run one size alone so the peak is its own:
+//
+//	go test ./feed/publish -run '^$' -bench 'PublishFleet/feeds=1000' -benchtime 1x
+func BenchmarkPublishFleet(b *testing.B) {
+	for _, n := range []int{50, 1000} {
+		b.Run(fmt.Sprintf("feeds=%d", n), func(b *testing.B) {
+			cfg := fleetConfig(b, n)
+			now := time.Date(2027, 3, 20, 12, 0, 0, 0, time.UTC)
+			b.ReportAllocs()
+			var st Stats
+			for b.Loop() {
+				cat, err := feed.NewCatalogue(cfg, feed.Options{Now: now, Refresh: 24 * time.Hour})
+				if err != nil {
+					b.Fatal(err)
+				}
+				srcs := make([]Source, len(cfg.Feeds))
+				for i := range cfg.Feeds {
+					f := &cfg.Feeds[i]
+					srcs[i] = Source{ID: f.ID, Build: func(context.Context) (*feed.Calendar, error) { return cat.Calendar(f) }}
+				}
+				opts := RenderOptions{BaseURL: demoBase, Generated: now.Truncate(24 * time.Hour), MaxFeedBytes: -1}
+				st, err = Publish(context.Background(), srcs, opts, &Writer{Dir: b.TempDir()})
+				if err != nil {
+					b.Fatal(err)
+				}
+			}
+			b.ReportMetric(float64(st.Events), "events")
+			b.ReportMetric(float64(st.Bytes)/1e6, "MB-written")
+			b.ReportMetric(float64(peakRSS())/1e6, "peak-RSS-MB")
+		})
+	}
+}

@@ -1,0 +1,235 @@
+package serve
+
+import (
+	"context"
+	"errors"
+	"io"
+	"net"
+	"net/http"
+	"sync/atomic"
+	"testing"
+	"testing/synctest"
+	"time"
+
+	"github.com/prometheus/client_golang/prometheus"
+
+	"heliocal/feed/publish"
+)
+
+func listen(t *testing.T) net.Listener {
+	t.Helper()
+	ln, err := net.Listen("tcp", "127.0.0.1:0")
+	if err != nil {
+		t.Fatal(err)
+	}
+	return ln
+}
+
+// waitHealthy polls /healthz until it answers 200. Each poll is a real round
+// trip to the server; nothing sleeps.
+func waitHealthy(t *testing.T, base string) {
+	t.Helper()
+	for {
+		r, err := http.Get(base + "/healthz")
+		if err == nil {
+			io.Copy(io.Discard, r.Body)
+			r.Body.Close()
+			if r.StatusCode == 200 {
+				return
+			}
+		}
+		if t.Context().Err() != nil {
+			t.Fatal("server never became healthy")
+		}
+	}
+}
+
+// TestGracefulShutdown: cancelling Run's context while a request is in
+// flight lets that request finish with its whole body, then Run returns nil.
+func TestGracefulShutdown(t *testing.T) {
+	entered := make(chan struct{})
+	release := make(chan struct{})
+	reg := prometheus.NewRegistry()
+	s, err := New(Options{
+		Build:      func(context.Context) (*publish.Bundle, error) { return testBundle("a"), nil },
+		Logger:     quiet(),
+		Registerer: reg, Gatherer: reg,
+		Adhoc: func(ctx context.Context, q AdhocQuery) ([]byte, error) {
+			close(entered)
+			<-release
+			return adhocICS(ctx, q)
+		},
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	ln := listen(t)
+	base := "http://" + ln.Addr().String()
+	ctx, cancel := context.WithCancel(t.Context())
+	runErr := make(chan error, 1)
+	go func() { runErr <- s.Run(ctx, ln) }()
+	waitHealthy(t, base)
+
+	type result struct {
+		code int
+		body string
+		err  error
+	}
+	inflight := make(chan result, 1)
+	go func() {
+		r, err := http.Get(base + "/at.ics?lat=52.1&lon=5.2&tz=Europe/Amsterdam&kinds=sunrise&start=2026-06-01&days=60")
+		if err != nil {
+			inflight <- result{err: err}
+			return
+		}
+		b, err := io.ReadAll(r.Body)
+		r.Body.Close()
+		inflight <- result{r.StatusCode, string(b), err}
+	}()
+	<-entered
+	cancel() // SIGTERM
+	// Run must not return while the request is in flight.
+	select {
+	case err := <-runErr:
+		t.Fatalf("Run returned %v with a request in flight", err)
+	default:
+	}
+	close(release)
+	res := <-inflight
+	if res.err != nil || res.code != 200 {
+		t.Fatalf("in-flight request: %d %v", res.code, res.err)
+	}
+	q, _ := parseAdhoc("lat=52.1&lon=5.2&tz=Europe/Amsterdam&kinds=sunrise&start=2026-06-01&days=60", time.Now(), s.limits)
+	want, _ := adhocICS(context.Background(), q)
+	if res.body != string(want) {
+		t.Error("in-flight request got a partial body")
+	}
+	if err := <-runErr; err != nil {
+		t.Fatalf("Run = %v, want nil after a graceful shutdown", err)
+	}
+	if _, err := http.Get(base + "/healthz"); err == nil {
+		t.Error("server still accepts connections after shutdown")
+	}
+}
+
+// TestRunServesBeforeFirstBuild: the listener answers at once; /healthz is
+// 503 until a build succeeds, then 200.
+func TestRunServesBeforeFirstBuild(t *testing.T) {
+	gate := make(chan struct{})
+	reg := prometheus.NewRegistry()
+	s, err := New(Options{
+		Build: func(ctx context.Context) (*publish.Bundle, error) {
+			select {
+			case <-gate:
+				return testBundle("a"), nil
+			case <-ctx.Done():
+				return nil, ctx.Err()
+			}
+		},
+		Logger: quiet(), Registerer: reg, Gatherer: reg,
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	ln := listen(t)
+	base := "http://" + ln.Addr().String()
+	ctx, cancel := context.WithCancel(t.Context())
+	runErr := make(chan error, 1)
+	go func() { runErr <- s.Run(ctx, ln) }()
+	r, err := http.Get(base + "/healthz")
+	if err != nil {
+		t.Fatal(err)
+	}
+	r.Body.Close()
+	if r.StatusCode != 503 {
+		t.Errorf("healthz during the first build: %d, want 503", r.StatusCode)
+	}
+	close(gate)
+	waitHealthy(t, base)
+	cancel()
+	if err := <-runErr; err != nil {
+		t.Fatal(err)
+	}
+	if err := s.Run(t.Context(), listen(t)); err == nil {
+		t.Error("second Run accepted")
+	}
+}
+
+// TestInitialBuildRetries: while no build has succeeded, builds are retried
+// with doubling waits (on synctest's fake clock: no real waiting).
+func TestInitialBuildRetries(t *testing.T) {
+	synctest.Test(t, func(t *testing.T) {
+		var attempts []time.Duration
+		start := time.Now()
+		var n atomic.Int32
+		reg := prometheus.NewRegistry()
+		s, err := New(Options{
+			Build: func(context.Context) (*publish.Bundle, error) {
+				attempts = append(attempts, time.Since(start))
+				if n.Add(1) < 5 {
+					return nil, errors.New("config: sites[0]: unreadable")
+				}
+				return testBundle("a"), nil
+			},
+			Logger: quiet(), Registerer: reg, Gatherer: reg,
+			RetryMin: 10 * time.Second, RetryMax: 30 * time.Second,
+		})
+		if err != nil {
+			t.Fatal(err)
+		}
+		s.initialBuild(t.Context())
+		want := []time.Duration{0, 10 * time.Second, 30 * time.Second, 60 * time.Second, 90 * time.Second}
+		if len(attempts) != len(want) {
+			t.Fatalf("attempts at %v, want %v", attempts, want)
+		}
+		for i := range want {
+			if attempts[i] != want[i] {
+				t.Errorf("attempt %d at %v, want %v", i, attempts[i], want[i])
+			}
+		}
+		if s.snap.Load() == nil {
+			t.Error("no bundle after a successful retry")
+		}
+		s.initialBuild(t.Context()) // already built: returns without building
+		if len(attempts) != 5 {
+			t.Error("built again although a bundle is served")
+		}
+	})
+}
+
+// TestScheduledRefresh: the refresh runs on the cron schedule, on the fake
+// clock, and a failing one keeps the feeds.
+func TestScheduledRefresh(t *testing.T) {
+	synctest.Test(t, func(t *testing.T) {
+		b := &builder{b: testBundle("a")}
+		reg := prometheus.NewRegistry()
+		s, err := New(Options{Build: b.build, Logger: quiet(), Registerer: reg, Gatherer: reg,
+			Schedule: "15 3 * * *", ScheduleZone: time.UTC})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if err := s.Refresh(t.Context()); err != nil {
+			t.Fatal(err)
+		}
+		if want := time.Date(2000, 1, 1, 3, 15, 0, 0, time.UTC); !s.NextRefresh().Equal(want) {
+			t.Errorf("NextRefresh %v, want %v", s.NextRefresh(), want)
+		}
+		s.sched.Start(t.Context())
+		b.set(testBundle("b"), nil)
+		time.Sleep(4 * time.Hour)
+		synctest.Wait()
+		if got := body(t, get(t, s.Handler(), "GET", "/")); got != string(testBundle("b").File("index.html").Data) {
+			t.Errorf("after the 03:15 refresh: %q", got)
+		}
+		b.set(nil, errors.New("catalogue: out of range"))
+		time.Sleep(24 * time.Hour)
+		synctest.Wait()
+		if got := body(t, get(t, s.Handler(), "GET", "/")); got != string(testBundle("b").File("index.html").Data) {
+			t.Errorf("after a failed refresh: %q", got)
+		}
+		s.sched.Stop(t.Context())
+		if b.calls != 3 {
+			t.Errorf("builds %d, want 3 (manual, two scheduled)", b.calls)
+		}
+	})
+}

@@ -66,7 +66,7 @@ func newAsset(name, contentType string, data []byte, mod time.Time, prev *asset)
 func gzipBytes(data []byte) []byte {
 	var buf bytes.Buffer
 	zw, _ := gzip.NewWriterLevel(&buf, gzip.DefaultCompression) // level is valid: no error
-	zw.Write(data)                                            // a bytes.Buffer never fails
+	zw.Write(data)                                              // a bytes.Buffer never fails
 	zw.Close()
 	if buf.Len() >= len(data)*9/10 {
 		return nil

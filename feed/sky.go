@@ -96,15 +96,27 @@ func midnight(d time.Time, loc *time.Location) time.Time {
 // 00:00 UTC civil dates) and the notes for dates on which a kind has no
 // event. Events are sorted by Start.
 func (s *Sky) Events(p Place, kinds []config.Kind, first, last time.Time) ([]Event, []Note, error) {
+	specs := make([]config.KindSpec, len(kinds))
+	for i, k := range kinds {
+		specs[i] = config.KindSpec{Kind: k}
+	}
+	return s.EventsFor(p, specs, first, last)
+}
+
+// EventsFor is Events with the options of each kind that change what is
+// computed (a dark window's largest illuminated fraction); the options that
+// only change how entries look (offset, label) are for the catalogue.
+func (s *Sky) EventsFor(p Place, specs []config.KindSpec, first, last time.Time) ([]Event, []Note, error) {
 	first, last = civil(first), civil(last)
 	if last.Before(first) {
 		return nil, nil, fmt.Errorf("feed: date range ends (%s) before it starts (%s)",
 			last.Format(time.DateOnly), first.Format(time.DateOnly))
 	}
 	c := &collector{sky: s, p: p, first: first, last: last}
-	for _, k := range kinds {
-		if err := c.add(k); err != nil {
-			return nil, nil, fmt.Errorf("feed: %s: %w", k, err)
+	for _, k := range specs {
+		c.maxLit = k.MaxIllumination
+		if err := c.add(k.Kind); err != nil {
+			return nil, nil, fmt.Errorf("feed: %s: %w", k.Kind, err)
 		}
 	}
 	sort.SliceStable(c.events, func(i, j int) bool { return c.events[i].Start.Before(c.events[j].Start) })

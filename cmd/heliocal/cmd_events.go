@@ -30,6 +30,7 @@ type eventsOptions struct {
 	from, to  string
 	kinds     string
 	format    string
+	maxLit    float64
 	placeFlag bool // --lat/--lon given
 	now       time.Time
 }
@@ -69,6 +70,7 @@ csv (both).` + exitStatusHelp,
 	f.StringVar(&o.to, "to", "", "last local date, YYYY-MM-DD, inclusive (default from + 6 days)")
 	f.StringVar(&o.kinds, "kinds", defaultKinds, "comma-separated event kinds")
 	f.StringVarP(&o.format, "format", "f", "table", "output format: table, json or csv")
+	f.Float64Var(&o.maxLit, "max-illumination", 0, "dark-window: the Moon may be up while less than this fraction is lit (0..1)")
 	_ = cmd.RegisterFlagCompletionFunc("format", cobra.FixedCompletions([]string{"table", "json", "csv"}, cobra.ShellCompDirectiveNoFileComp))
 	_ = cmd.RegisterFlagCompletionFunc("kinds", cobra.FixedCompletions(config.KindNames, cobra.ShellCompDirectiveNoFileComp|cobra.ShellCompDirectiveNoSpace))
 	return cmd
@@ -188,7 +190,14 @@ func runEvents(_ context.Context, g *globals, o *eventsOptions) error {
 	if err != nil {
 		return inputError{err}
 	}
-	events, notes, err := sky.Events(feed.PlaceOf(site), kinds, from, to)
+	if math.IsNaN(o.maxLit) || o.maxLit < 0 || o.maxLit > 1 {
+		return badInput("--max-illumination: %v: must be within 0..1", o.maxLit)
+	}
+	specs := make([]config.KindSpec, len(kinds))
+	for i, k := range kinds {
+		specs[i] = config.KindSpec{Kind: k, MaxIllumination: o.maxLit}
+	}
+	events, notes, err := sky.EventsFor(feed.PlaceOf(site), specs, from, to)
 	if err != nil {
 		return err
 	}

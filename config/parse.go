@@ -427,9 +427,13 @@ func problemFor(path string, err error) []FieldError {
 	if rest, ok := strings.CutPrefix(msg, "has invalid keys: "); ok {
 		var out []FieldError
 		for _, key := range strings.Split(rest, ", ") {
-			p := key
+			shownKey := key
+			if shownKey == "" {
+				shownKey = `""`
+			}
+			p := shownKey
 			if path != "" {
-				p = path + "." + key
+				p = path + "." + shownKey
 			}
 			fe := FieldError{Path: p, Value: key, Msg: "unknown key"}
 			if near := closest(key, keysAt(path)); near != "" {

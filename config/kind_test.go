@@ -1,0 +1,218 @@
+package config
+
+import (
+	"slices"
+	"strconv"
+	"strings"
+	"testing"
+	"time"
+)
+
+// TestKindVocabulary pins the vocabulary the configuration documents: the
+// names are file syntax, so a change here is a change for every user.
+func TestKindVocabulary(t *testing.T) {
+	want := []string{
+		"sunrise", "sunset", "solar-noon",
+		"civil-dawn", "civil-dusk", "nautical-dawn", "nautical-dusk", "astronomical-dawn", "astronomical-dusk",
+		"golden-hour", "blue-hour", "sun-altitude",
+		"march-equinox", "june-solstice", "september-equinox", "december-solstice", "seasons", "cross-quarter",
+		"perihelion", "aphelion", "photoperiod", "daily-summary",
+		"new-moon", "first-quarter", "full-moon", "last-quarter", "moon-phases",
+		"moonrise", "moonset", "moon-transit", "dark-window",
+	}
+	if !slices.Equal(KindNames, want) {
+		t.Errorf("KindNames\n got %q\nwant %q", KindNames, want)
+	}
+	if len(KindExamples) != len(KindNames) {
+		t.Fatalf("%d examples for %d names", len(KindExamples), len(KindNames))
+	}
+	for i, ex := range KindExamples {
+		k, err := ParseKind(ex)
+		if err != nil {
+			t.Errorf("example %q: %v", ex, err)
+			continue
+		}
+		if k.Name != KindNames[i] {
+			t.Errorf("example %q parses to %q, want %q", ex, k.Name, KindNames[i])
+		}
+		if KindDoc(k.Name) == "" || k.Family() == "" {
+			t.Errorf("%q has no documentation or family", k.Name)
+		}
+	}
+}
+
+func TestParseKind(t *testing.T) {
+	tests := []struct {
+		in   string
+		want Kind
+		str  string // String(); "" means in
+	}{
+		{"sunrise", Kind{Name: "sunrise"}, ""},
+		{"  Solar-Noon ", Kind{Name: "solar-noon"}, "solar-noon"},
+		{"sun-altitude:-3.5", Kind{Name: "sun-altitude", Altitude: -3.5}, ""},
+		{"sun-altitude: 6", Kind{Name: "sun-altitude", Altitude: 6}, "sun-altitude:6"},
+		{"sun-altitude:-0.833", Kind{Name: "sun-altitude", Altitude: -0.833}, ""},
+		{"photoperiod:12h", Kind{Name: "photoperiod", DayLength: 12 * time.Hour}, ""},
+		{"photoperiod:14h30m", Kind{Name: "photoperiod", DayLength: 14*time.Hour + 30*time.Minute}, ""},
+		{"photoperiod:870m", Kind{Name: "photoperiod", DayLength: 14*time.Hour + 30*time.Minute}, "photoperiod:14h30m"},
+		{"photoperiod:12h0m30s", Kind{Name: "photoperiod", DayLength: 12*time.Hour + 30*time.Second}, ""},
+		{"moon-phases", Kind{Name: "moon-phases"}, ""},
+	}
+	for _, tc := range tests {
+		got, err := ParseKind(tc.in)
+		if err != nil {
+			t.Errorf("ParseKind(%q): %v", tc.in, err)
+			continue
+		}
+		if got != tc.want {
+			t.Errorf("ParseKind(%q) = %+v, want %+v", tc.in, got, tc.want)
+		}
+		str := tc.str
+		if str == "" {
+			str = tc.in
+		}
+		if got.String() != str {
+			t.Errorf("ParseKind(%q).String() = %q, want %q", tc.in, got.String(), str)
+		}
+	}
+}
+
+func TestParseKindErrors(t *testing.T) {
+	tests := []struct{ in, msg, hint string }{
+		{"sunrize", "unknown kind", `did you mean "sunrise"?`},
+		{"sun_set", "unknown kind", `did you mean "sunset"?`},
+		{"fullmoon", "unknown kind", `did you mean "full-moon"?`},
+		{"golden hour", "unknown kind", `did you mean "golden-hour"?`},
+		{"photoperoid:12h", "unknown kind", `did you mean "photoperiod:12h"?`},
+		{"sunaltitude", "unknown kind", `did you mean "sun-altitude:-3.5"?`},
+		{"tea-time", "unknown kind", "known kinds: sunrise, sunset"},
+		{"", "unknown kind", "known kinds:"},
+		{"sunrise:5", "kind takes no parameter", `write "sunrise"`},
+		{"sun-altitude", "needs an altitude", ""},
+		{"sun-altitude:", "needs an altitude", ""},
+		{"sun-altitude:90", "must be within -90..90", ""},
+		{"sun-altitude:-90", "must be within -90..90", ""},
+		{"sun-altitude:NaN", "malformed altitude", ""},
+		{"sun-altitude:inf", "malformed altitude", ""},
+		{"sun-altitude:six", "malformed altitude", ""},
+		{"photoperiod", "needs a day length", ""},
+		{"photoperiod:12", "malformed day length", ""},
+		{"photoperiod:0s", "longer than 0 and shorter than 24h", ""},
+		{"photoperiod:24h", "longer than 0 and shorter than 24h", ""},
+		{"photoperiod:-1h", "longer than 0 and shorter than 24h", ""},
+	}
+	for _, tc := range tests {
+		_, err := ParseKind(tc.in)
+		if err == nil {
+			t.Errorf("ParseKind(%q): no error", tc.in)
+			continue
+		}
+		if !strings.Contains(err.Error(), tc.msg) || !strings.Contains(err.Error(), strconv.Quote(tc.in)) {
+			t.Errorf("ParseKind(%q): %q lacks %q or the value", tc.in, err, tc.msg)
+		}
+		if !strings.Contains(err.Error(), tc.hint) {
+			t.Errorf("ParseKind(%q): %q lacks hint %q", tc.in, err, tc.hint)
+		}
+	}
+}
+
+func TestKindPredicates(t *testing.T) {
+	is := func(pred func(Kind) bool) []string {
+		var out []string
+		for _, ex := range KindExamples {
+			k, _ := ParseKind(ex)
+			if pred(k) {
+				out = append(out, k.Name)
+			}
+		}
+		return out
+	}
+	check := func(what string, got, want []string) {
+		t.Helper()
+		if !slices.Equal(got, want) {
+			t.Errorf("%s: got %q, want %q", what, got, want)
+		}
+	}
+	check("IsSpan", is(Kind.IsSpan), []string{"golden-hour", "blue-hour", "dark-window"})
+	check("IsMoon", is(Kind.IsMoon), []string{"new-moon", "first-quarter", "full-moon", "last-quarter", "moon-phases", "moonrise", "moonset", "moon-transit", "dark-window"})
+	check("IsYearly", is(Kind.IsYearly), []string{"march-equinox", "june-solstice", "september-equinox", "december-solstice", "seasons", "cross-quarter", "perihelion", "aphelion", "new-moon", "first-quarter", "full-moon", "last-quarter", "moon-phases"})
+	check("IsGroup", is(Kind.IsGroup), []string{"seasons", "moon-phases"})
+	check("IsAllDay", is(Kind.IsAllDay), []string{"photoperiod", "daily-summary"})
+
+	var names []string
+	for _, m := range (Kind{Name: "seasons"}).Members() {
+		names = append(names, m.String())
+	}
+	check("seasons members", names, []string{"march-equinox", "june-solstice", "september-equinox", "december-solstice"})
+	names = nil
+	for _, m := range (Kind{Name: "moon-phases"}).Members() {
+		names = append(names, m.String())
+	}
+	check("moon-phases members", names, []string{"new-moon", "first-quarter", "full-moon", "last-quarter"})
+	if m := (Kind{Name: "sunrise"}).Members(); len(m) != 1 || m[0].Name != "sunrise" {
+		t.Errorf("sunrise members: %v", m)
+	}
+}
+
+func TestKindText(t *testing.T) {
+	var k Kind
+	if err := k.UnmarshalText([]byte("photoperiod:16h")); err != nil || k.DayLength != 16*time.Hour {
+		t.Fatalf("UnmarshalText: %v %+v", err, k)
+	}
+	b, _ := k.MarshalText()
+	if string(b) != "photoperiod:16h" {
+		t.Errorf("MarshalText = %q", b)
+	}
+	if err := k.UnmarshalText([]byte("sunrize")); err == nil || k.DayLength != 16*time.Hour {
+		t.Errorf("a failed UnmarshalText must leave the kind alone: %v %+v", err, k)
+	}
+}
+
+func TestDuration(t *testing.T) {
+	for in, want := range map[string]string{"30m": "30m", "-1h15m": "-1h15m", "90s": "1m30s", "2h": "2h", "0": "0s"} {
+		var d Duration
+		if err := d.UnmarshalText([]byte(in)); err != nil {
+			t.Errorf("%q: %v", in, err)
+			continue
+		}
+		if d.String() != want {
+			t.Errorf("%q: String() = %q, want %q", in, d, want)
+		}
+	}
+	var d Duration
+	if err := d.UnmarshalText([]byte("30")); err == nil || !strings.Contains(err.Error(), `"30"`) {
+		t.Errorf("bare number: %v", err)
+	}
+}
+
+func FuzzParseKind(f *testing.F) {
+	for _, ex := range KindExamples {
+		f.Add(ex)
+	}
+	for _, s := range []string{"sun-altitude:-0", "sun-altitude:1e-9", "sun-altitude:89.999999999", "photoperiod:23h59m59.999999999s",
+		"photoperiod:1ns", "SUNSET", " moonrise ", "sun-altitude:+6", "photoperiod:.5h", "sunrise:", ":", "seasons:x"} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, s string) {
+		k, err := ParseKind(s)
+		if err != nil {
+			if !strings.Contains(err.Error(), strconv.Quote(s)) {
+				t.Fatalf("error %q does not name the value %q", err, s)
+			}
+			return
+		}
+		back, err := ParseKind(k.String())
+		if err != nil {
+			t.Fatalf("ParseKind(%q) = %+v, but its String %q does not parse: %v", s, k, k.String(), err)
+		}
+		if back != k {
+			t.Fatalf("round trip of %q: %+v → %q → %+v", s, k, k.String(), back)
+		}
+		if k.String() != strings.ToLower(k.String()) || strings.ContainsAny(k.String(), " \t\n") {
+			t.Fatalf("String %q is not canonical", k.String())
+		}
+		if _, ok := kindIndex[k.Name]; !ok {
+			t.Fatalf("ParseKind(%q) returned unknown name %q", s, k.Name)
+		}
+	})
+}

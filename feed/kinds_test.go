@@ -1,0 +1,54 @@
+package feed
+
+import (
+	"os/exec"
+	"strings"
+	"testing"
+
+	"heliocal/config"
+)
+
+// Every kind of the configuration vocabulary has a computation here, and
+// gives at least one event or note over a year at a mid-latitude site.
+func TestEveryKindComputed(t *testing.T) {
+	s := site(t, "mid", 48.2, 16.4, "Europe/Vienna")
+	sk := sky(t, "2027-01-01", "2027-12-31")
+	for _, name := range config.KindNames {
+		example := name
+		switch name {
+		case config.KindSunAltitude:
+			example = "sun-altitude:10"
+		case config.KindPhotoperiod:
+			example = "photoperiod:12h"
+		}
+		t.Run(name, func(t *testing.T) {
+			k := mustKinds(t, example)
+			entries, err := sk.Entries(s, "f", []config.KindSpec{{Kind: k[0]}}, date("2027-01-01"), date("2027-12-31"))
+			if err != nil {
+				t.Fatal(err)
+			}
+			if len(entries) == 0 {
+				t.Error("no entries in a year")
+			}
+			for _, e := range entries {
+				if e.Title == "" || e.Description == "" || e.UID == "" {
+					t.Fatalf("incomplete entry %+v", e)
+				}
+			}
+		})
+	}
+}
+
+// feed imports heliocal/astro and heliocal/config, never the renderers or
+// servers built on it (STYLE: imports point one way).
+func TestDependencies(t *testing.T) {
+	out, err := exec.Command("go", "list", "-deps", "-f", "{{if not .Standard}}{{.ImportPath}}{{end}}", ".").Output()
+	if err != nil {
+		t.Fatalf("go list: %v", err)
+	}
+	for _, p := range strings.Fields(string(out)) {
+		if strings.HasPrefix(p, "heliocal/") && p != "heliocal/feed" && p != "heliocal/astro" && p != "heliocal/config" {
+			t.Errorf("heliocal/feed depends on %s", p)
+		}
+	}
+}

@@ -16,6 +16,15 @@
 // observers here (no dip). Its ΔT is the Espenak–Meeus polynomials; phases
 // are written with their TT instant so ΔT models do not enter the phase
 // comparison.
+//
+// Phases: the library's own SearchMoonQuarter compares longitudes without
+// the annual aberration of the Sun (its PairLongitude uses positions without
+// aberration), which puts every phase about 40 s after the almanac-office
+// (USNO) definition by apparent longitudes. So each of its quarters is solved
+// again here, with the library's Search, on the library's apparent positions:
+// the Sun from GeoVector(Sun, t, aberration = true), the Moon from GeoMoon at
+// t − light time (the geocentric apparent Moon), both through Ecliptic (true
+// ecliptic and equinox of date).
 'use strict';
 const Astronomy = require('astronomy-engine');
 
@@ -46,6 +55,30 @@ function ttJD(t) { return (t.tt + 2451545.0).toFixed(8); }
 const rows = [];
 rows.push('kind,lat,lon,elev_m,span_start,span_end,utc,tt_jd,source');
 
+// apparentElongation returns the library's apparent geocentric elongation in
+// longitude Moon − Sun (degrees, [0, 360)) at time t.
+function apparentElongation(t) {
+  const sun = Astronomy.Ecliptic(Astronomy.GeoVector(Astronomy.Body.Sun, t, true)).elon;
+  const g = Astronomy.GeoMoon(t);
+  const tau = Math.hypot(g.x, g.y, g.z) / Astronomy.C_AUDAY;
+  const m = Astronomy.GeoMoon(t.AddDays(-tau));
+  m.t = t;
+  const moon = Astronomy.Ecliptic(m).elon;
+  return ((moon - sun) % 360 + 360) % 360;
+}
+
+function solvePhase(quarter, approx) {
+  const target = 90 * quarter;
+  const f = (t) => {
+    let d = apparentElongation(t) - target;
+    d = ((d + 180) % 360 + 360) % 360 - 180;
+    return d;
+  };
+  const r = Astronomy.Search(f, approx.AddDays(-0.05), approx.AddDays(0.05), { dt_tolerance_seconds: 0.01 });
+  if (r === null) throw new Error('phase not bracketed near ' + approx.date.toISOString());
+  return r;
+}
+
 // Moon phases: every phase of a sample of years 1900–2100.
 const phaseKinds = ['new_moon', 'first_quarter', 'full_moon', 'last_quarter'];
 for (const year of [1900, 1927, 1950, 1969, 1986, 2000, 2013, 2024, 2025, 2026, 2038, 2050, 2077, 2099]) {
@@ -55,7 +88,10 @@ for (const year of [1900, 1927, 1950, 1969, 1986, 2000, 2013, 2024, 2025, 2026, 
   for (;;) {
     const q = Astronomy.SearchMoonQuarter(t);
     if (q.time.date >= end) break;
-    rows.push([phaseKinds[q.quarter], '', '', '', start.toISOString(), end.toISOString(), iso(q.time), ttJD(q.time), SOURCE].join(','));
+    const tm = solvePhase(q.quarter, q.time);
+    if (tm.date >= start && tm.date < end) {
+      rows.push([phaseKinds[q.quarter], '', '', '', start.toISOString(), end.toISOString(), iso(tm), ttJD(tm), SOURCE].join(','));
+    }
     t = q.time.AddDays(1);
   }
 }

@@ -127,7 +127,8 @@ type tickView struct {
 type markView struct {
 	X, Y1, Y2, TY string
 	Anchor        string // text-anchor of the label: kept inside the chart
-	Label         string
+	Label, Date   string
+	Shown         bool // the label fits above the plot
 }
 
 type levelView struct {
@@ -245,7 +246,9 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 
 	step := float64(plotW) / float64(len(days))
 	for i, d := range days {
-		if d.Date.Day() != 1 && i != 0 {
+		// A tick at each first of the month, and a label for the first day
+		// when its month has at least 12 days left in the chart.
+		if d.Date.Day() != 1 && (i != 0 || time.Date(d.Date.Year(), d.Date.Month()+1, 1, 0, 0, 0, 0, time.UTC).Sub(d.Date) < 12*24*time.Hour) {
 			continue
 		}
 		x := plotLeft + float64(i)*step
@@ -256,36 +259,56 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 		v.Hours = append(v.Hours, tickView{Y: num(y), TX: num(plotLeft - 6), TY: num(y + 4), Label: strconv.Itoa(h) + " h"})
 	}
 	span := last.Add(24 * time.Hour).Sub(first)
-	lastX := math.Inf(-1)
-	row := 0
-	for _, m := range c.Marks {
+	marks := append([]Mark(nil), c.Marks...)
+	sort.SliceStable(marks, func(i, j int) bool { return marks[i].At.Before(marks[j].At) })
+	rowEnd := [2]float64{math.Inf(-1), math.Inf(-1)}
+	for _, m := range marks {
 		off := m.At.Sub(first)
 		if off < 0 || off >= span {
 			continue
 		}
 		x := plotLeft + float64(plotW)*off.Hours()/span.Hours()
-		if x-lastX < 110 {
-			row = 1 - row
-		} else {
-			row = 0
-		}
-		lastX = x
-		anchor, half := "middle", 2.8*float64(len([]rune(m.Label))) // about 5.6 units a character at 10 px
+		// Keep the label inside the chart, on the first of two rows where
+		// it does not run into the previous label; with no room, the line
+		// stays and the label is only in its tooltip and the caption.
+		w := 5.6 * float64(len([]rune(m.Label))) // about 5.6 units a character at 10 px
+		anchor, left := "middle", x-w/2
 		switch {
-		case x+half > chartW-2:
-			anchor = "end"
-		case x-half < 2:
-			anchor = "start"
+		case x+w/2 > chartW-2:
+			anchor, left = "end", x-w
+		case x-w/2 < 2:
+			anchor, left = "start", x
 		}
-		v.Marks = append(v.Marks, markView{X: num(x), Y1: num(plotTop - 2 - 12*float64(row)), Y2: num(plotBottom),
-			TY: num(plotTop - 6 - 12*float64(row)), Anchor: anchor, Label: m.Label})
+		mv := markView{X: num(x), Y1: num(plotTop), Y2: num(plotBottom), Anchor: anchor, Label: m.Label,
+			Date: m.At.UTC().Format("2 Jan")}
+		for r := range rowEnd {
+			if left > rowEnd[r]+6 {
+				rowEnd[r] = left + w
+				mv.Y1, mv.TY, mv.Shown = num(plotTop-2-12*float64(r)), num(plotTop-6-12*float64(r)), true
+				break
+			}
+		}
+		v.Marks = append(v.Marks, mv)
 	}
 	for _, lv := range c.Levels {
 		h := clipHours(lv.Length)
 		y := yOf(h)
-		v.Levels = append(v.Levels, levelView{Y: num(y), TX: num(plotLeft + plotW - 4), TY: num(y - 3), Label: lv.Label})
+		label := lv.Label
+		if label == "" {
+			label = formatHours(lv.Length)
+		}
+		v.Levels = append(v.Levels, levelView{Y: num(y), TX: num(plotLeft + plotW - 4), TY: num(y - 3), Label: label})
 	}
 	return v
+}
+
+// formatHours writes a day length as "12 h" or "14 h 30 min".
+func formatHours(d time.Duration) string {
+	m := int(math.Round(clipHours(d) * 60))
+	if m%60 == 0 {
+		return strconv.Itoa(m/60) + " h"
+	}
+	return fmt.Sprintf("%d h %d min", m/60, m%60)
 }
 
 func plural(n int, one, many string) string {

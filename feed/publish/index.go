@@ -30,6 +30,7 @@ type indexView struct {
 	Size      string
 	Caution   string
 	Relative  bool
+	NoCharts  string // why the charts are left out, if they are
 	Sites     []siteView
 }
 
@@ -132,6 +133,16 @@ func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, 
 	v.Events = formatCount(events)
 	v.Size = formatBytes(size)
 
+	charts := opts.Charts
+	if limit := opts.MaxCharts; charts != nil {
+		if limit == 0 {
+			limit = DefaultMaxCharts
+		}
+		if limit > 0 && len(l.sites) > limit {
+			charts = nil
+			v.NoCharts = fmt.Sprintf("The yearly charts are left out: %d sites are more than this page draws (%d).", len(l.sites), limit)
+		}
+	}
 	sites := append([]feed.Site(nil), l.sites...)
 	sort.SliceStable(sites, func(i, j int) bool {
 		if sites[i].Name != sites[j].Name {
@@ -157,11 +168,11 @@ func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, 
 			Elevation: strconv.FormatFloat(math.Round(s.Elevation), 'f', 0, 64) + " m",
 			Zone:      zone, Feeds: feeds,
 		}
-		if opts.Charts != nil {
+		if charts != nil {
 			if err := ctx.Err(); err != nil {
 				return nil, fmt.Errorf("publish: %w", err)
 			}
-			c, err := opts.Charts(ctx, s)
+			c, err := charts(ctx, s)
 			if err != nil {
 				return nil, fmt.Errorf("publish: chart of site %s: %w", s.ID, err)
 			}
@@ -219,7 +230,7 @@ svg .ll{text-anchor:end;fill:#1d2030;paint-order:stroke;stroke:#fbfaf6;stroke-wi
 <h1>{{.Title}}</h1>
 <p>{{.Feeds}} calendar feeds, {{.Events}} events, {{.Size}}{{if .Generated}}, computed on {{.Generated}}{{end}}.
 {{if .Relative}}Subscribe by adding a feed's address (the link below, made absolute with this page's address) to your calendar app as a subscription.{{else}}The webcal link subscribes in your calendar app; the https address can be pasted into any app's "subscribe by URL".{{end}}
-Machine-readable list: <a href="feeds.json">feeds.json</a>.</p>
+Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{.}}{{end}}</p>
 </header>
 <aside class="caution" role="note"><strong>Caution.</strong> {{.Caution}}</aside>
 {{range .Sites}}
@@ -235,14 +246,14 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.</p>
 {{end}}{{range .Hours}}<line class="grid" x1="44" x2="744" y1="{{.Y}}" y2="{{.Y}}"/><text class="yl" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>
 {{end}}{{range .Months}}<line class="tick" x1="{{.X}}" x2="{{.X}}" y1="270" y2="275"/><text x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>
 {{end}}{{range .Levels}}<line class="level" x1="44" x2="744" y1="{{.Y}}" y2="{{.Y}}"/><text class="ll" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>
-{{end}}{{range .Marks}}<line class="mark" x1="{{.X}}" x2="{{.X}}" y1="{{.Y1}}" y2="{{.Y2}}"/><text class="ml" x="{{.X}}" y="{{.TY}}" text-anchor="{{.Anchor}}">{{.Label}}</text>
+{{end}}{{range .Marks}}<line class="mark" x1="{{.X}}" x2="{{.X}}" y1="{{.Y1}}" y2="{{.Y2}}"><title>{{.Label}}, {{.Date}}</title></line>{{if .Shown}}<text class="ml" x="{{.X}}" y="{{.TY}}" text-anchor="{{.Anchor}}">{{.Label}}</text>{{end}}
 {{end}}</svg>
 <figcaption>{{.Summary}} Hours per day with
 <span class="key day"></span>the Sun up,
 <span class="key civil"></span>civil twilight (Sun above −6°),
 <span class="key naut"></span>nautical (above −12°),
 <span class="key astro"></span>astronomical (above −18°) and
-<span class="key night"></span>full night.</figcaption>
+<span class="key night"></span>full night.{{if .Marks}} Red lines:{{range $i, $m := .Marks}}{{if $i}};{{end}} {{$m.Label}} ({{$m.Date}}){{end}}.{{end}}{{if .Levels}} Dashed lines: day length{{range $i, $l := .Levels}}{{if $i}},{{end}} {{$l.Label}}{{end}}.{{end}}</figcaption>
 </figure>
 {{end}}<table>
 <thead><tr><th>Feed</th><th class="num">Events</th><th class="num">Size</th><th>Subscribe</th></tr></thead>

@@ -155,6 +155,14 @@ func TestIndexPage(t *testing.T) {
 		}
 	}
 
+	// Over MaxCharts sites, no charts, and the page says so.
+	opts.MaxCharts = 1
+	page = renderIndexFor(t, opts, cals)
+	if n := len(parseStrict(t, page).all("svg")); n != 0 || !strings.Contains(string(page), "2 sites are more than this page draws (1)") {
+		t.Errorf("MaxCharts 1 with 2 sites: %d charts", n)
+	}
+	opts.MaxCharts = 0
+
 	// Without a base URL: relative links, and no webcal (it needs a host).
 	opts.BaseURL = ""
 	doc = parseStrict(t, renderIndexFor(t, opts, cals))

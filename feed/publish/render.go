@@ -32,6 +32,10 @@ const (
 // than about 1 MB.
 const DefaultMaxFeedBytes = ical.MaxAdvisedSize
 
+// DefaultMaxCharts bounds the charts on the index page: a fleet-sized
+// configuration gets a listing that still loads quickly.
+const DefaultMaxCharts = 100
+
 // Source is one feed to render: its id, known before any computation (so
 // sharding costs nothing), and a function computing its calendar. Build is
 // called at most once, possibly from another goroutine, and the calendar is
@@ -73,6 +77,10 @@ type RenderOptions struct {
 	// Charts supplies the year's chart of a site for the index page; nil
 	// leaves the charts out. It is called once per site, from one goroutine.
 	Charts func(ctx context.Context, site feed.Site) (*SiteChart, error)
+	// MaxCharts is the most sites the index draws charts for (each weighs
+	// about 15 kB); with more sites the page lists them without charts.
+	// Zero means DefaultMaxCharts, negative means no limit.
+	MaxCharts int
 	// Shard restricts the run to one part of the feeds; see Publish for what
 	// happens to feeds.json and index.html then.
 	Shard Shard

@@ -86,8 +86,9 @@ func parseStrict(data []byte) (*comp, []string) {
 		phys = phys[:len(phys)-1]
 	}
 	type logical struct {
-		text string
-		line int
+		text  string
+		line  int
+		parts []string // continuation pieces, joined after the scan
 	}
 	var lines []logical
 	for i, l := range phys {
@@ -110,10 +111,16 @@ func parseStrict(data []byte) (*comp, []string) {
 				bad(n, "continuation line first")
 				continue
 			}
-			lines[len(lines)-1].text += l[1:]
+			last := &lines[len(lines)-1]
+			last.parts = append(last.parts, l[1:])
 			continue
 		}
-		lines = append(lines, logical{l, n})
+		lines = append(lines, logical{text: l, line: n})
+	}
+	for i := range lines {
+		if len(lines[i].parts) > 0 {
+			lines[i].text += strings.Join(lines[i].parts, "")
+		}
 	}
 	var stack []*comp
 	var root *comp

@@ -1,0 +1,75 @@
+package config
+
+import (
+	"errors"
+	"strings"
+	"testing"
+	"time"
+)
+
+func TestZoneHint(t *testing.T) {
+	tests := []struct{ in, want string }{
+		{"europe/vienna", `did you mean "Europe/Vienna"?`},       // capitals
+		{"Vienna", `did you mean "Europe/Vienna"?`},              // city alone
+		{"Europe/Viena", `did you mean "Europe/Vienna"?`},        // misspelt
+		{"America/New York", `did you mean "America/New_York"?`}, // space for underscore
+		{"Pacific/Aukland", `did you mean "Pacific/Auckland"?`},
+		{"Mars/Olympus_Mons", `use an IANA name such as "Europe/Vienna"`},
+	}
+	for _, tc := range tests {
+		var z Zone
+		err := z.UnmarshalText([]byte(tc.in))
+		var ze *ZoneError
+		if !errors.As(err, &ze) {
+			t.Errorf("%q: want a *ZoneError, got %v", tc.in, err)
+			continue
+		}
+		if !strings.Contains(err.Error(), `"`+tc.in+`"`) || !strings.Contains(ze.Hint, tc.want) {
+			t.Errorf("%q: %v; want hint %q", tc.in, err, tc.want)
+		}
+	}
+	// Every suggestion list entry is a zone the tz database resolves.
+	for _, name := range zoneNames {
+		if _, err := time.LoadLocation(name); err != nil {
+			t.Errorf("zonenames.txt lists %q, which does not load: %v", name, err)
+		}
+	}
+	var z Zone
+	if err := z.UnmarshalText([]byte("Local")); err == nil {
+		t.Error(`"Local" accepted: it would depend on the machine`)
+	}
+	if err := z.UnmarshalText([]byte("Asia/Kolkata")); err != nil || z.Name() != "Asia/Kolkata" {
+		t.Errorf("Asia/Kolkata: %v %q", err, z.Name())
+	}
+	b, _ := z.MarshalText()
+	if string(b) != "Asia/Kolkata" {
+		t.Errorf("MarshalText = %q", b)
+	}
+}
+
+// TestValidateBuiltInCode checks Validate on a configuration built in code,
+// where kinds and zones did not pass through the parser.
+func TestValidateBuiltInCode(t *testing.T) {
+	c := &Config{
+		Sites: []Site{{ID: "a", Latitude: 10, Longitude: 20}},
+		Feeds: []Feed{{ID: "f", Site: "a", Kinds: []KindSpec{
+			{Kind: Kind{Name: "sun-altitude", Altitude: 120}},
+			{Kind: Kind{Name: "sunrize"}},
+			{},
+		}}},
+	}
+	c.ApplyDefaults()
+	if c.Feeds[0].DaysBack != DefaultDaysBack || c.Feeds[0].DaysAhead != DefaultDaysAhead || c.Sites[0].Name != "a" || c.Service.Listen != DefaultListen {
+		t.Errorf("ApplyDefaults: %+v", c)
+	}
+	err := c.Validate()
+	ps := problemsOf(t, err)
+	var paths []string
+	for _, p := range ps {
+		paths = append(paths, p.Path)
+	}
+	want := "sites[0].timezone feeds[0].kinds[0].kind feeds[0].kinds[1].kind feeds[0].kinds[2].kind"
+	if got := strings.Join(paths, " "); got != want {
+		t.Errorf("paths %q, want %q\n%v", got, want, err)
+	}
+}

@@ -22,8 +22,8 @@ import (
 // with s′ the topocentric semidiameter asin(1737.4 km / Δ′), Δ′ the distance
 // from the observer — the same rule as the Sun's Observer.RiseSetAltitude,
 // with the Moon's semidiameter in place of the Sun's 16′. Because s′ changes
-// (14.7′–16.8′ over a month), each crossing is solved with s′ at the middle
-// of its bracket and solved again with s′ at the first solution.
+// (14.7′–16.8′ over a month), the crossing is solved on the altitude minus
+// the moving threshold (see moonCrossings).
 //
 // The geocentric apparent Moon (moon.go) does not depend on the site: a
 // MoonEphemeris samples it every 6 hours and interpolates with the generic
@@ -111,27 +111,94 @@ func (e *MoonEphemeris) moonSemidiameter(st *site, sec float64) float64 {
 }
 
 // moonCrossings returns the Moon's rise/set crossings (upper limb, as at the
-// top of this file) in [a, b), using the extrema ext.
+// top of this file) in [a, b), using the extrema ext of the altitude.
+//
+// The threshold h₀ moves with the semidiameter, so the search works on
+// g(t) = sin h(t) − sin h₀(t) directly: g is evaluated once at every
+// extremum and each pair of consecutive extrema whose values differ in sign
+// holds exactly one crossing (the altitude is monotonic between them and h₀
+// changes by a few arcseconds a day). A grazing culmination is therefore
+// judged once, at the extremum, for both neighbouring brackets: a moonrise
+// is never reported without its moonset or the reverse.
 func (e *MoonEphemeris) moonCrossings(o Observer, st *site, ext []extremum, a, b float64) []crossing {
-	var out, buf []crossing
+	base := (o.RiseSetAltitude() + 16.0/60) * deg2rad
+	g := func(t float64) float64 {
+		return e.moon.sinAltitude(st, t) - math.Sin(base-e.moonSemidiameter(st, t))
+	}
+	gExt := make([]float64, len(ext))
+	for i, x := range ext {
+		if ext[min(i+1, len(ext)-1)].t < a || (i > 0 && ext[i-1].t >= b) {
+			continue // not a bound of any bracket overlapping [a, b)
+		}
+		gExt[i] = x.sinH - math.Sin(base-e.moonSemidiameter(st, x.t))
+	}
+	var out []crossing
 	for i := 0; i+1 < len(ext); i++ {
-		if ext[i+1].t < a || ext[i].t >= b {
+		e0, e1 := ext[i], ext[i+1]
+		if e1.t < a || e0.t >= b {
 			continue
 		}
-		pair := ext[i : i+2]
-		mid := 0.5 * (pair[0].t + pair[1].t)
-		sd := e.moonSemidiameter(st, mid)
-		buf = e.moon.crossings(st, pair, math.Sin(moonRiseSetAltitude(o, sd)), a, b, buf[:0])
-		if len(buf) == 1 {
-			// Solve again with the semidiameter at the crossing. The
-			// threshold moves by at most a few arcseconds, so the crossing
-			// stays in this bracket unless it sits at an extremum.
-			sd2 := e.moonSemidiameter(st, buf[0].t)
-			buf = e.moon.crossings(st, pair, math.Sin(moonRiseSetAltitude(o, sd2)), a, b, buf[:0])
+		f0, f1 := gExt[i], gExt[i+1]
+		if !(f0 < 0 && f1 > 0) && !(f0 > 0 && f1 < 0) {
+			continue
 		}
-		out = append(out, buf...)
+		rising := f1 > 0
+		sd := e.moonSemidiameter(st, 0.5*(e0.t+e1.t))
+		guess := e.moon.guess(st, math.Sin(base-sd), e0, e1, rising)
+		t := rootInBracket(g, e0.t, f0, e1.t, f1, guess)
+		if t >= a && t < b {
+			out = append(out, crossing{t: t, rising: rising})
+		}
 	}
 	return out
+}
+
+// rootInBracket returns the root of f in [a, b] (fa, fb of opposite signs)
+// to 1 ms, starting from the estimate x inside the bracket: regula falsi with
+// the Illinois modification (J. A. Ford, "Improved algorithms of Illinois-type
+// for the numerical solution of nonlinear equations", 1995), which keeps the
+// bracket and converges superlinearly.
+func rootInBracket(f func(float64) float64, a, fa, b, fb, x float64) float64 {
+	if x > a && x < b {
+		if fx := f(x); fx == 0 {
+			return x
+		} else if (fx < 0) == (fa < 0) {
+			a, fa = x, fx
+		} else {
+			b, fb = x, fx
+		}
+	}
+	side := 0
+	for range 200 {
+		if b-a < 1e-3 {
+			break
+		}
+		x = b - fb*(b-a)/(fb-fa)
+		if !(x > a && x < b) {
+			x = 0.5 * (a + b)
+		}
+		fx := f(x)
+		if fx == 0 {
+			return x
+		}
+		if (fx < 0) == (fb < 0) {
+			b, fb = x, fx
+			if side == -1 {
+				fa /= 2
+			}
+			side = -1
+		} else {
+			a, fa = x, fx
+			if side == 1 {
+				fb /= 2
+			}
+			side = 1
+		}
+		if math.Abs(b-a) < 1e-3 {
+			break
+		}
+	}
+	return 0.5 * (a + b)
 }
 
 // MoonRiseSet returns every moonrise (Direction Rising) and moonset

@@ -381,6 +381,16 @@ func TestLoadErrors(t *testing.T) {
 	if !errors.Is(err, ErrUnreadable) || !strings.Contains(err.Error(), "as yaml") {
 		t.Errorf("syntax error: %v", err)
 	}
+	for name, want := range map[string]string{
+		"syntax-error.yaml": `cannot read the file as yaml: yaml: line 4: mapping key "id" already defined at line 3`,
+		"syntax-error.toml": "cannot read the file as toml: line 3, column",
+		"syntax-error.json": "cannot read the file as json: line 3: invalid character '}'",
+	} {
+		_, err = loadTestdata(t, name)
+		if !errors.Is(err, ErrUnreadable) || !strings.Contains(err.Error(), want) || !strings.HasPrefix(err.Error(), filepath.Join(testdata, name)+": ") {
+			t.Errorf("%s: %v\nwant it to contain %q", name, err, want)
+		}
+	}
 	_, err = Parse(strings.NewReader("{}"), "xml")
 	if err == nil || !strings.Contains(err.Error(), `unsupported format "xml"`) {
 		t.Errorf("format: %v", err)

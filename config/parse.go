@@ -3,6 +3,7 @@ package config
 import (
 	"bytes"
 	_ "embed"
+	"encoding/json"
 	"errors"
 	"fmt"
 	"io"
@@ -97,7 +98,7 @@ func parse(data []byte, format string, env LookupEnv) (c *Config, err error) {
 	v := viper.New()
 	v.SetConfigType(format)
 	if err := readConfig(v, data); err != nil {
-		return nil, fmt.Errorf("%w as %s: %s", ErrUnreadable, format, oneLine(err.Error()))
+		return nil, fmt.Errorf("%w as %s: %s", ErrUnreadable, format, syntaxMessage(err, data))
 	}
 	explicit := explicitWindows(v.Get("feeds"))
 
@@ -141,6 +142,36 @@ func readConfig(v *viper.Viper, data []byte) (err error) {
 		}
 	}()
 	return v.ReadConfig(bytes.NewReader(data))
+}
+
+// syntaxMessage words a reader error on one line, with the line number
+// when the format's decoder knows it.
+func syntaxMessage(err error, data []byte) string {
+	var inner error = err
+	if u := errors.Unwrap(err); u != nil {
+		inner = u // drop viper's "While parsing config:" wrapper
+	}
+	msg := inner.Error()
+	msg = strings.Replace(msg, "unmarshal errors:\n", "", 1)
+	var lines []string
+	for _, l := range strings.Split(msg, "\n") {
+		if l = strings.Join(strings.Fields(l), " "); l != "" {
+			lines = append(lines, l)
+		}
+	}
+	msg = strings.Join(lines, "; ")
+	var pos interface{ Position() (int, int) } // TOML decoder errors
+	var js *json.SyntaxError
+	switch {
+	case errors.As(err, &pos):
+		row, col := pos.Position()
+		msg = fmt.Sprintf("line %d, column %d: %s", row, col, msg)
+	case errors.As(err, &js):
+		off := min(int(js.Offset), len(data))
+		row := bytes.Count(data[:off], []byte("\n")) + 1
+		msg = fmt.Sprintf("line %d: %s", row, msg)
+	}
+	return msg
 }
 
 func oneLine(s string) string {

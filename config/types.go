@@ -12,7 +12,8 @@ type Config struct {
 
 // Service holds deployment settings. Each can be overridden from the
 // environment with the HELIOCAL_ prefix (HELIOCAL_LISTEN, HELIOCAL_OUT_DIR,
-// HELIOCAL_REFRESH, HELIOCAL_REFRESH_ZONE, HELIOCAL_BASE_URL).
+// HELIOCAL_REFRESH, HELIOCAL_REFRESH_ZONE, HELIOCAL_BASE_URL,
+// HELIOCAL_MAX_FEED_BYTES); see EnvNames and ParseEnv.
 type Service struct {
 	Listen       string `mapstructure:"listen"`         // default ":8080"
 	OutDir       string `mapstructure:"out_dir"`        // default "public"

@@ -1,0 +1,432 @@
+// Command loadtest measures a heliocal server on this machine: requests per
+// second for a cached feed, with and without conditional GET (If-None-Match,
+// answered 304), and latency percentiles for ad-hoc one-year feeds.
+//
+// It only ever talks to loopback addresses (127.0.0.0/8, ::1, localhost):
+// it is a measuring tool for the machine it runs on, never a load generator
+// against someone else's server. Every run is bounded by a request count and
+// a time limit.
+//
+// Usage:
+//
+//	loadtest -feed http://127.0.0.1:8080/feeds/meadowbrook-sun.ics \
+//	         -adhoc 'http://127.0.0.1:8080/at.ics?lon=13.05&tz=Europe/Vienna&kinds=sunrise,sunset,civil-dawn,civil-dusk&days=365'
+//
+// or let it start the server and stop it afterwards:
+//
+//	loadtest -start 'heliocal serve --config farm.yaml --listen 127.0.0.1:18080' \
+//	         -feed http://127.0.0.1:18080/feeds/meadowbrook-sun.ics -adhoc '...'
+//
+// The ad-hoc URL must leave out lat: loadtest adds a different latitude to
+// every request (from -lat upwards in steps of 0.001°), so each one misses
+// the server's cache and measures a real build; -adhoc-cached repeats one
+// query instead.
+package main
+
+import (
+	"context"
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"net"
+	"net/http"
+	"net/url"
+	"os"
+	"os/exec"
+	"os/signal"
+	"runtime"
+	"slices"
+	"strconv"
+	"strings"
+	"sync"
+	"sync/atomic"
+	"syscall"
+	"time"
+)
+
+func main() {
+	if err := run(); err != nil {
+		fmt.Fprintln(os.Stderr, "loadtest:", err)
+		os.Exit(1)
+	}
+}
+
+type config struct {
+	feed, adhoc     string
+	start           string
+	concurrency     int
+	adhocConc       int
+	requests        int
+	adhocRequests   int
+	duration        time.Duration
+	lat             float64
+	adhocCached     bool
+	startupDeadline time.Duration
+}
+
+func run() error {
+	var c config
+	flag.StringVar(&c.feed, "feed", "", "URL of a served feed (loopback only)")
+	flag.StringVar(&c.adhoc, "adhoc", "", "ad-hoc feed URL without lat= (loopback only)")
+	flag.StringVar(&c.start, "start", "", "command that starts the server (split on spaces); stopped with SIGTERM at the end")
+	flag.IntVar(&c.concurrency, "c", 2*runtime.GOMAXPROCS(0), "concurrent connections for the feed runs")
+	flag.IntVar(&c.adhocConc, "adhoc-c", runtime.GOMAXPROCS(0), "concurrent connections for the ad-hoc run")
+	flag.IntVar(&c.requests, "n", 200000, "requests per feed run (at most)")
+	flag.IntVar(&c.adhocRequests, "adhoc-n", 300, "requests in the ad-hoc run (at most)")
+	flag.DurationVar(&c.duration, "d", 10*time.Second, "time limit of each run")
+	flag.Float64Var(&c.lat, "lat", 47.0, "first latitude of the ad-hoc run")
+	flag.BoolVar(&c.adhocCached, "adhoc-cached", false, "repeat one ad-hoc query (cache hits) instead of a new place per request")
+	flag.DurationVar(&c.startupDeadline, "wait", 2*time.Minute, "how long to wait for a started server's /healthz")
+	flag.Parse()
+	if c.feed == "" && c.adhoc == "" {
+		return errors.New("nothing to measure: give -feed and/or -adhoc")
+	}
+	for _, u := range []string{c.feed, c.adhoc} {
+		if u == "" {
+			continue
+		}
+		if err := loopbackOnly(u); err != nil {
+			return err
+		}
+	}
+	if c.concurrency < 1 || c.adhocConc < 1 || c.requests < 1 || c.adhocRequests < 1 || c.duration <= 0 {
+		return errors.New("-c, -adhoc-c, -n, -adhoc-n and -d must be positive")
+	}
+
+	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
+	defer stop()
+
+	if c.start != "" {
+		target := c.feed
+		if target == "" {
+			target = c.adhoc
+		}
+		stopServer, err := startServer(ctx, c.start, target, c.startupDeadline)
+		if err != nil {
+			return err
+		}
+		defer stopServer()
+	}
+
+	fmt.Printf("loadtest: GOMAXPROCS=%d (client and server share this machine's CPUs)\n", runtime.GOMAXPROCS(0))
+	if c.feed != "" {
+		if err := measureFeed(ctx, c); err != nil {
+			return err
+		}
+	}
+	if c.adhoc != "" {
+		if err := measureAdhoc(ctx, c); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// loopbackOnly refuses any URL whose host is not a loopback address.
+func loopbackOnly(raw string) error {
+	u, err := url.Parse(raw)
+	if err != nil {
+		return fmt.Errorf("url %q: %w", raw, err)
+	}
+	if u.Scheme != "http" {
+		return fmt.Errorf("url %q: only http:// to a loopback address is measured", raw)
+	}
+	host := u.Hostname()
+	if host == "localhost" {
+		return nil
+	}
+	ip := net.ParseIP(host)
+	if ip == nil || !ip.IsLoopback() {
+		return fmt.Errorf("url %q: host %q is not a loopback address (127.0.0.1, ::1, localhost): loadtest measures this machine only", raw, host)
+	}
+	return nil
+}
+
+// newClient returns a client that keeps one connection per worker and
+// leaves gzip bodies compressed (as a calendar client caching them would).
+func newClient(conns int) *http.Client {
+	tr := &http.Transport{
+		Proxy:               nil,
+		DialContext:         loopbackDialer,
+		MaxIdleConns:        conns,
+		MaxIdleConnsPerHost: conns,
+		MaxConnsPerHost:     conns,
+		DisableCompression:  true,
+		IdleConnTimeout:     30 * time.Second,
+	}
+	return &http.Client{Transport: tr, Timeout: 60 * time.Second,
+		CheckRedirect: func(*http.Request, []*http.Request) error { return http.ErrUseLastResponse }}
+}
+
+// loopbackDialer checks the resolved address again: "localhost" must
+// resolve to loopback too.
+func loopbackDialer(ctx context.Context, network, addr string) (net.Conn, error) {
+	var d net.Dialer
+	conn, err := d.DialContext(ctx, network, addr)
+	if err != nil {
+		return nil, err
+	}
+	if ta, ok := conn.RemoteAddr().(*net.TCPAddr); !ok || !ta.IP.IsLoopback() {
+		conn.Close()
+		return nil, fmt.Errorf("refusing non-loopback peer %v", conn.RemoteAddr())
+	}
+	return conn, nil
+}
+
+// startServer runs cmdline and waits until /healthz on target's host says 200.
+func startServer(ctx context.Context, cmdline, target string, wait time.Duration) (func(), error) {
+	args := strings.Fields(cmdline)
+	cmd := exec.Command(args[0], args[1:]...)
+	cmd.Stdout = io.Discard
+	logf, err := os.CreateTemp("", "loadtest-server-*.log")
+	if err != nil {
+		return nil, err
+	}
+	cmd.Stderr = logf
+	if err := cmd.Start(); err != nil {
+		return nil, fmt.Errorf("starting %q: %w", cmdline, err)
+	}
+	stop := func() {
+		cmd.Process.Signal(syscall.SIGTERM)
+		cmd.Wait()
+		logf.Close()
+		fmt.Printf("loadtest: server stopped; its log is %s\n", logf.Name())
+	}
+	u, _ := url.Parse(target)
+	health := u.Scheme + "://" + u.Host + "/healthz"
+	client := newClient(1)
+	deadline := time.Now().Add(wait)
+	for {
+		req, _ := http.NewRequestWithContext(ctx, "GET", health, nil)
+		if r, err := client.Do(req); err == nil {
+			io.Copy(io.Discard, r.Body)
+			r.Body.Close()
+			if r.StatusCode == 200 {
+				return stop, nil
+			}
+		}
+		if time.Now().After(deadline) || ctx.Err() != nil {
+			stop()
+			return nil, fmt.Errorf("server did not become healthy at %s within %v", health, wait)
+		}
+		select { // poll the server every 100 ms while it builds
+		case <-ctx.Done():
+		case <-time.After(100 * time.Millisecond):
+		}
+	}
+}
+
+// result of one run.
+type result struct {
+	name      string
+	conns     int
+	elapsed   time.Duration
+	latencies []time.Duration
+	statuses  map[int]int
+	errors    int
+	firstErr  error
+	bytes     int64
+}
+
+func (r *result) print() {
+	slices.Sort(r.latencies)
+	n := len(r.latencies)
+	fmt.Printf("\n%s\n", r.name)
+	fmt.Printf("  connections %d, requests %d in %v, errors %d\n", r.conns, n, r.elapsed.Round(time.Millisecond), r.errors)
+	if n == 0 {
+		if r.firstErr != nil {
+			fmt.Printf("  first error: %v\n", r.firstErr)
+		}
+		return
+	}
+	fmt.Printf("  throughput  %.0f req/s, %.1f MB/s\n", float64(n)/r.elapsed.Seconds(), float64(r.bytes)/r.elapsed.Seconds()/1e6)
+	fmt.Printf("  latency     p50 %v  p90 %v  p99 %v  max %v\n",
+		pct(r.latencies, 50), pct(r.latencies, 90), pct(r.latencies, 99), r.latencies[n-1].Round(time.Microsecond))
+	var codes []string
+	for _, c := range slices.Sorted(mapKeys(r.statuses)) {
+		codes = append(codes, fmt.Sprintf("%d×%d", c, r.statuses[c]))
+	}
+	fmt.Printf("  status      %s\n", strings.Join(codes, " "))
+	if r.firstErr != nil {
+		fmt.Printf("  first error: %v\n", r.firstErr)
+	}
+}
+
+func mapKeys(m map[int]int) func(func(int) bool) {
+	return func(yield func(int) bool) {
+		for k := range m {
+			if !yield(k) {
+				return
+			}
+		}
+	}
+}
+
+func pct(sorted []time.Duration, p int) time.Duration {
+	i := (len(sorted)*p + 99) / 100
+	i = min(max(i-1, 0), len(sorted)-1)
+	return sorted[i].Round(time.Microsecond)
+}
+
+// load sends up to n requests from conns workers for at most d. next builds
+// request i.
+func load(ctx context.Context, name string, conns, n int, d time.Duration, next func(i int) (*http.Request, error)) *result {
+	client := newClient(conns)
+	defer client.CloseIdleConnections()
+	ctx, cancel := context.WithTimeout(ctx, d)
+	defer cancel()
+	var issued atomic.Int64
+	type local struct {
+		lat      []time.Duration
+		statuses map[int]int
+		errors   int
+		firstErr error
+		bytes    int64
+	}
+	locals := make([]local, conns)
+	var wg sync.WaitGroup
+	start := time.Now()
+	for w := range conns {
+		wg.Go(func() {
+			l := &locals[w]
+			l.statuses = map[int]int{}
+			l.lat = make([]time.Duration, 0, n/conns+1)
+			for ctx.Err() == nil {
+				i := int(issued.Add(1)) - 1
+				if i >= n {
+					return
+				}
+				req, err := next(i)
+				if err != nil {
+					l.errors++
+					l.firstErr = cmp(l.firstErr, err)
+					continue
+				}
+				t0 := time.Now()
+				resp, err := client.Do(req.WithContext(ctx))
+				if err != nil {
+					if ctx.Err() == nil {
+						l.errors++
+						l.firstErr = cmp(l.firstErr, err)
+					}
+					continue
+				}
+				nb, err := io.Copy(io.Discard, resp.Body)
+				resp.Body.Close()
+				if err != nil {
+					if ctx.Err() == nil {
+						l.errors++
+						l.firstErr = cmp(l.firstErr, err)
+					}
+					continue
+				}
+				l.lat = append(l.lat, time.Since(t0))
+				l.statuses[resp.StatusCode]++
+				l.bytes += nb
+			}
+		})
+	}
+	wg.Wait()
+	r := &result{name: name, conns: conns, elapsed: time.Since(start), statuses: map[int]int{}}
+	for _, l := range locals {
+		r.latencies = append(r.latencies, l.lat...)
+		for k, v := range l.statuses {
+			r.statuses[k] += v
+		}
+		r.errors += l.errors
+		r.bytes += l.bytes
+		r.firstErr = cmp(r.firstErr, l.firstErr)
+	}
+	return r
+}
+
+func cmp(a, b error) error {
+	if a != nil {
+		return a
+	}
+	return b
+}
+
+// measureFeed: one warm-up GET for the ETag, then a run of full GETs
+// (gzip accepted) and a run of conditional GETs.
+func measureFeed(ctx context.Context, c config) error {
+	client := newClient(1)
+	req, _ := http.NewRequestWithContext(ctx, "GET", c.feed, nil)
+	req.Header.Set("Accept-Encoding", "gzip")
+	resp, err := client.Do(req)
+	if err != nil {
+		return fmt.Errorf("feed: %w", err)
+	}
+	size, _ := io.Copy(io.Discard, resp.Body)
+	resp.Body.Close()
+	if resp.StatusCode != 200 {
+		return fmt.Errorf("feed %s: status %d", c.feed, resp.StatusCode)
+	}
+	etag := resp.Header.Get("ETag")
+	if etag == "" {
+		return fmt.Errorf("feed %s: no ETag: conditional GET cannot be measured", c.feed)
+	}
+	fmt.Printf("feed %s: %d bytes as sent (%s), ETag %s\n", c.feed, size, orDefault(resp.Header.Get("Content-Encoding"), "identity"), etag)
+
+	full := load(ctx, "cached feed, full GET (Accept-Encoding: gzip) → 200", c.concurrency, c.requests, c.duration,
+		func(int) (*http.Request, error) {
+			r, err := http.NewRequest("GET", c.feed, nil)
+			if err == nil {
+				r.Header.Set("Accept-Encoding", "gzip")
+			}
+			return r, err
+		})
+	full.print()
+	cond := load(ctx, "cached feed, conditional GET (If-None-Match) → 304", c.concurrency, c.requests, c.duration,
+		func(int) (*http.Request, error) {
+			r, err := http.NewRequest("GET", c.feed, nil)
+			if err == nil {
+				r.Header.Set("Accept-Encoding", "gzip")
+				r.Header.Set("If-None-Match", etag)
+			}
+			return r, err
+		})
+	cond.print()
+	return nil
+}
+
+// measureAdhoc: a new place per request (a cache miss each time) unless
+// -adhoc-cached.
+func measureAdhoc(ctx context.Context, c config) error {
+	u, err := url.Parse(c.adhoc)
+	if err != nil {
+		return err
+	}
+	if u.Query().Has("lat") {
+		return errors.New("-adhoc: leave lat= out of the URL; loadtest varies it")
+	}
+	name := "ad-hoc feed, a new place per request (cache miss) → 200"
+	if c.adhocCached {
+		name = "ad-hoc feed, one repeated query (cache hit) → 200"
+	}
+	r := load(ctx, name, c.adhocConc, c.adhocRequests, c.duration, func(i int) (*http.Request, error) {
+		lat := c.lat
+		if !c.adhocCached {
+			lat += float64(i) * 0.001
+		}
+		v := u.Query()
+		v.Set("lat", strconv.FormatFloat(lat, 'f', 4, 64))
+		uu := *u
+		uu.RawQuery = v.Encode()
+		r, err := http.NewRequest("GET", uu.String(), nil)
+		if err == nil {
+			r.Header.Set("Accept-Encoding", "gzip")
+		}
+		return r, err
+	})
+	r.print()
+	return nil
+}
+
+func orDefault(s, d string) string {
+	if s == "" {
+		return d
+	}
+	return s
+}

@@ -312,7 +312,8 @@ func (tr *track) crossings(st *site, ext []extremum, sinH0, a, b float64, out []
 			continue
 		}
 		rising := f1 > 0
-		t := tr.solve(st, sinH0, e0.t, f0, e1.t, f1, tr.guess(st, sinH0, e0, e1, rising))
+		g, slope := tr.estimate(st, sinH0, e0, e1, rising)
+		t := tr.solve(st, sinH0, e0.t, f0, e1.t, f1, g, slope)
 		if t >= a && t < b {
 			out = append(out, crossing{t: t, rising: rising})
 		}
@@ -321,36 +322,54 @@ func (tr *track) crossings(st *site, ext []extremum, sinH0, a, b float64, out []
 }
 
 // guess estimates a crossing time within (e0, e1) by the hour-angle
-// formula.
+// formula (see estimate).
 func (tr *track) guess(st *site, sinH0 float64, e0, e1 extremum, rising bool) float64 {
-	mid := 0.5 * (e0.t + e1.t)
-	_, dec, _ := tr.at(mid)
-	sd, cd := math.Sincos(dec)
-	den := st.cosLat * cd
-	if den == 0 {
-		return mid
-	}
-	c := (sinH0 - st.sinLat*sd) / den
-	if c < -1 || c > 1 {
-		return mid
-	}
-	H0 := math.Acos(c)
-	var g float64
-	if rising { // from the lower to the upper culmination: H = −H0
-		g = e1.t - H0/tr.rate
-	} else {
-		g = e0.t + H0/tr.rate
-	}
-	if !(g > e0.t && g < e1.t) {
-		return mid
-	}
+	g, _ := tr.estimate(st, sinH0, e0, e1, rising)
 	return g
 }
 
+// estimate estimates a crossing time within (e0, e1) by the hour-angle
+// formula, evaluated twice (the second time with the declination at the
+// first estimate), and returns the rate of change of the sine of the
+// altitude there (per second), or 0 when the formula does not apply.
+func (tr *track) estimate(st *site, sinH0 float64, e0, e1 extremum, rising bool) (g, slope float64) {
+	g = 0.5 * (e0.t + e1.t)
+	_, dec, _ := tr.at(g)
+	for range 2 {
+		sd, cd := math.Sincos(dec)
+		den := st.cosLat * cd
+		if den == 0 {
+			return 0.5 * (e0.t + e1.t), 0
+		}
+		c := (sinH0 - st.sinLat*sd) / den
+		if c < -1 || c > 1 {
+			return 0.5 * (e0.t + e1.t), 0
+		}
+		H0 := math.Acos(c)
+		if rising { // from the lower to the upper culmination: H = −H0
+			g = e1.t - H0/tr.rate
+		} else {
+			g = e0.t + H0/tr.rate
+		}
+		if !(g > e0.t && g < e1.t) {
+			return 0.5 * (e0.t + e1.t), 0
+		}
+		// d(sin h)/dt = −cos φ cos δ sin H · dH/dt, H = ∓H0
+		slope = st.cosLat * cd * math.Sin(H0) * tr.rate
+		if !rising {
+			slope = -slope
+		}
+		_, dec, _ = tr.at(g)
+	}
+	return g, slope
+}
+
 // solve finds the root of sinAltitude − sinH0 in the bracket [a, b] (fa, fb
-// of opposite signs) from the estimate g: secant steps kept inside the
-// shrinking bracket, bisection when they fail, to 1 ms.
-func (tr *track) solve(st *site, sinH0, a, fa, b, fb, g float64) float64 {
+// of opposite signs) from the estimate g and the slope there (0 if
+// unknown): secant steps kept inside the shrinking bracket, bisection when
+// they fail. It stops when a step is below 0.05 s: the secant method's
+// next error is then below 0.1 ms.
+func (tr *track) solve(st *site, sinH0, a, fa, b, fb, g, slope float64) float64 {
 	f := func(t float64) float64 { return tr.sinAltitude(st, t) - sinH0 }
 	x0, f0 := g, f(g)
 	if f0 == 0 {
@@ -361,33 +380,40 @@ func (tr *track) solve(st *site, sinH0, a, fa, b, fb, g float64) float64 {
 	} else {
 		b, fb = x0, f0
 	}
-	// Second point: Newton step with the mean slope of the bracket's end
-	// nearer in sign, or simply the bracket end.
-	x1, f1 := a, fa
-	if math.Abs(b-x0) < math.Abs(x0-a) {
-		x1, f1 = b, fb
+	var x1 float64
+	if slope != 0 {
+		x1 = x0 - f0/slope
 	}
+	if slope == 0 || !(x1 > a && x1 < b) {
+		x1 = 0.5 * (a + b)
+	}
+	if math.Abs(x1-x0) < 0.05 {
+		return x1
+	}
+	f1 := f(x1)
 	for i := 0; i < 100; i++ {
+		if f1 == 0 {
+			return x1
+		}
+		if (f1 < 0) == (fa < 0) {
+			a, fa = x1, f1
+		} else {
+			b, fb = x1, f1
+		}
 		var x2 float64
 		if f1 != f0 {
 			x2 = x1 - f1*(x1-x0)/(f1-f0)
 		}
 		if f1 == f0 || !(x2 > a && x2 < b) || i > 40 {
 			x2 = 0.5 * (a + b)
-		}
-		f2 := f(x2)
-		if f2 == 0 {
+		} else if math.Abs(x2-x1) < 0.05 {
 			return x2
 		}
-		if (f2 < 0) == (fa < 0) {
-			a, fa = x2, f2
-		} else {
-			b, fb = x2, f2
-		}
-		if math.Abs(x2-x1) < 1e-3 || b-a < 1e-3 {
+		if b-a < 1e-3 {
 			return x2
 		}
-		x0, f0, x1, f1 = x1, f1, x2, f2
+		x0, f0 = x1, f1
+		x1, f1 = x2, f(x2)
 	}
 	return 0.5 * (a + b)
 }

@@ -4,6 +4,7 @@ import (
 	_ "embed"
 	"fmt"
 	"strings"
+	"sync"
 	"time"
 )
 
@@ -33,8 +34,21 @@ func loadZone(name string) (*time.Location, error) {
 	if name == "Local" || strings.ContainsAny(name, "\x00\\") || len(name) > 100 {
 		return nil, fmt.Errorf("not an IANA zone name")
 	}
-	return time.LoadLocation(name)
+	if loc, ok := zoneCache.Load(name); ok {
+		return loc.(*time.Location), nil
+	}
+	loc, err := time.LoadLocation(name)
+	if err != nil {
+		return nil, err
+	}
+	zoneCache.Store(name, loc)
+	return loc, nil
 }
+
+// zoneCache holds resolved zones (a *time.Location is immutable and safe to
+// share); a fleet configuration names the same few zones many times. Only
+// names the tz database knows are stored, so it stays small.
+var zoneCache sync.Map
 
 // MarshalText writes the zone's IANA name.
 func (z Zone) MarshalText() ([]byte, error) {

@@ -191,6 +191,19 @@ func TestGoodMinimalAndDefaults(t *testing.T) {
 	}
 }
 
+// TestWindowOverflow checks that huge day counts cannot wrap around the
+// ten-year limit.
+func TestWindowOverflow(t *testing.T) {
+	_, err := Parse(strings.NewReader(`
+sites: [{id: a, latitude: 1, longitude: 2, timezone: UTC}]
+feeds: [{id: f, site: a, kinds: [sunrise], days_back: 9223372036854775807, days_ahead: 1}]
+`), "yaml")
+	ps := problemsOf(t, err)
+	if len(ps) != 1 || ps[0].Path != "feeds[0].days_ahead" || !strings.Contains(ps[0].Msg, "over 10 years") {
+		t.Errorf("got %v", err)
+	}
+}
+
 func TestExplicitZeroWindowKept(t *testing.T) {
 	c, err := Parse(strings.NewReader(`
 sites: [{id: a, latitude: 1, longitude: 2, timezone: UTC}]

@@ -391,8 +391,12 @@ func (f *Feed) validate(ps *problems, p string) {
 	if f.DaysAhead < 0 {
 		ps.add(p+".days_ahead", strconv.Itoa(f.DaysAhead), "must not be negative", "the number of future days in the feed, e.g. 365")
 	}
-	if f.DaysBack >= 0 && f.DaysAhead >= 0 && f.DaysBack+f.DaysAhead > MaxWindowDays {
-		ps.add(p+".days_ahead", strconv.Itoa(f.DaysAhead), fmt.Sprintf("window of %d days (days_back %d + days_ahead %d) is over 10 years (%d days)", f.DaysBack+f.DaysAhead, f.DaysBack, f.DaysAhead, MaxWindowDays), "large feeds are dropped by some calendar apps; use 30 back and 365 ahead")
+	if f.DaysBack >= 0 && f.DaysAhead >= 0 && (f.DaysBack > MaxWindowDays || f.DaysAhead > MaxWindowDays || f.DaysBack+f.DaysAhead > MaxWindowDays) {
+		window := "window"
+		if f.DaysBack <= MaxWindowDays && f.DaysAhead <= MaxWindowDays {
+			window = fmt.Sprintf("window of %d days", f.DaysBack+f.DaysAhead)
+		}
+		ps.add(p+".days_ahead", strconv.Itoa(f.DaysAhead), fmt.Sprintf("%s (days_back %d + days_ahead %d) is over 10 years (%d days)", window, f.DaysBack, f.DaysAhead, MaxWindowDays), "large feeds are dropped by some calendar apps; use 30 back and 365 ahead")
 	}
 	if f.Color != "" && !IsColorName(f.Color) {
 		hint := "a CSS3 colour name such as \"goldenrod\" or \"steelblue\""

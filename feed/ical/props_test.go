@@ -284,3 +284,25 @@ func TestFold(t *testing.T) {
 		}
 	}
 }
+
+// TestColors: COLOR takes a CSS3 colour keyword (RFC 7986 §5.9); CSS Color
+// Module Level 3 §4.3 lists 147 of them (counting grey/gray twins), and
+// rebeccapurple came only with Level 4.
+func TestColors(t *testing.T) {
+	if len(cssColors) != 147 {
+		t.Errorf("%d colour names, want 147", len(cssColors))
+	}
+	for n := range cssColorNames {
+		if !cssColors[n] {
+			t.Errorf("%s missing", n)
+		}
+	}
+	for color, ok := range map[string]bool{"DarkOrange": true, " tomato ": true, "rebeccapurple": false, "#ff8800": false} {
+		c := smallCalendar(t, "Europe/Vienna")
+		c.Color = color
+		_, err := Marshal(c, Options{})
+		if (err == nil) != ok {
+			t.Errorf("Color %q: error %v", color, err)
+		}
+	}
+}

@@ -393,7 +393,7 @@ func (f *Feed) validate(ps *problems, p string) {
 	}
 	if f.DaysBack >= 0 && f.DaysAhead >= 0 && (f.DaysBack > MaxWindowDays || f.DaysAhead > MaxWindowDays || f.DaysBack+f.DaysAhead > MaxWindowDays) {
 		window := "window"
-		if f.DaysBack <= MaxWindowDays && f.DaysAhead <= MaxWindowDays {
+		if f.DaysBack < 1<<40 && f.DaysAhead < 1<<40 { // the sum cannot overflow
 			window = fmt.Sprintf("window of %d days", f.DaysBack+f.DaysAhead)
 		}
 		ps.add(p+".days_ahead", strconv.Itoa(f.DaysAhead), fmt.Sprintf("%s (days_back %d + days_ahead %d) is over 10 years (%d days)", window, f.DaysBack, f.DaysAhead, MaxWindowDays), "large feeds are dropped by some calendar apps; use 30 back and 365 ahead")

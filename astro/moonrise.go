@@ -121,16 +121,13 @@ func (e *MoonEphemeris) moonSemidiameter(st *site, sec float64) float64 {
 // judged once, at the extremum, for both neighbouring brackets: a moonrise
 // is never reported without its moonset or the reverse.
 func (e *MoonEphemeris) moonCrossings(o Observer, st *site, ext []extremum, a, b float64) []crossing {
-	base := (o.RiseSetAltitude() + 16.0/60) * deg2rad
-	g := func(t float64) float64 {
-		return e.moon.sinAltitude(st, t) - math.Sin(base-e.moonSemidiameter(st, t))
-	}
+	lg := e.newLimbG(o, st)
 	gExt := make([]float64, len(ext))
 	for i, x := range ext {
 		if ext[min(i+1, len(ext)-1)].t < a || (i > 0 && ext[i-1].t >= b) {
 			continue // not a bound of any bracket overlapping [a, b)
 		}
-		gExt[i] = x.sinH - math.Sin(base-e.moonSemidiameter(st, x.t))
+		gExt[i] = lg.g(x.t)
 	}
 	var out []crossing
 	for i := 0; i+1 < len(ext); i++ {
@@ -144,8 +141,8 @@ func (e *MoonEphemeris) moonCrossings(o Observer, st *site, ext []extremum, a, b
 		}
 		rising := f1 > 0
 		sd := e.moonSemidiameter(st, 0.5*(e0.t+e1.t))
-		guess := e.moon.guess(st, math.Sin(base-sd), e0, e1, rising)
-		t := rootInBracket(g, e0.t, f0, e1.t, f1, guess)
+		guess := e.moon.guess(st, math.Sin(moonRiseSetAltitude(o, sd)), e0, e1, rising)
+		t := rootInBracket(lg.g, e0.t, f0, e1.t, f1, guess)
 		if t >= a && t < b {
 			out = append(out, crossing{t: t, rising: rising})
 		}
@@ -153,50 +150,88 @@ func (e *MoonEphemeris) moonCrossings(o Observer, st *site, ext []extremum, a, b
 	return out
 }
 
+// limbG evaluates g(t) = sin h(t) − sin h₀(t) for one site: the sine of the
+// topocentric altitude of the Moon's centre minus that of the rise/set
+// threshold h₀ = base − s′(t), in one pass over the track (the geometry of
+// site.sinAltitudeFrom, plus the topocentric distance for s′).
+type limbG struct {
+	tr               *track
+	st               *site
+	sinBase, cosBase float64
+	radiusEarthRadii float64
+}
+
+func (e *MoonEphemeris) newLimbG(o Observer, st *site) *limbG {
+	base := (o.RiseSetAltitude() + 16.0/60) * deg2rad
+	sb, cb := math.Sincos(base)
+	return &limbG{tr: e.moon, st: st, sinBase: sb, cosBase: cb, radiusEarthRadii: moonRadiusKm / earthRadiusKm}
+}
+
+func (l *limbG) g(sec float64) float64 {
+	k, w := l.tr.weights(sec)
+	H := l.tr.ghaFrom(sec, k, &w) + l.st.lon
+	dec, dist := interp(l.tr.dec, k, &w), interp(l.tr.dist, k, &w)
+	sH, cH := math.Sincos(H)
+	sd, cd := math.Sincos(dec)
+	x := dist*cd*cH - l.st.rhoCos
+	y := dist * cd * sH
+	z := dist*sd - l.st.rhoSin
+	r := math.Sqrt(x*x + y*y + z*z)
+	sinAlt := (x*l.st.cosLat + z*l.st.sinLat) / r
+	// s′ = asin(R/r) ≈ q + q³/6 with q = R/r ≤ 0.0048 (error < 1e-13 rad);
+	// sin(base − s′) by the addition formula with the same series.
+	q := l.radiusEarthRadii / r
+	s := q + q*q*q/6
+	sinS, cosS := s-s*s*s/6, 1-s*s/2+s*s*s*s/24
+	return sinAlt - (l.sinBase*cosS - l.cosBase*sinS)
+}
+
 // rootInBracket returns the root of f in [a, b] (fa, fb of opposite signs)
-// to 1 ms, starting from the estimate x inside the bracket: regula falsi with
-// the Illinois modification (J. A. Ford, "Improved algorithms of Illinois-type
-// for the numerical solution of nonlinear equations", 1995), which keeps the
-// bracket and converges superlinearly.
+// to 1 ms, starting from the estimate x: secant steps from x and a point a
+// minute away, each kept inside the shrinking bracket (bisection when a
+// step leaves it or after 30 steps).
 func rootInBracket(f func(float64) float64, a, fa, b, fb, x float64) float64 {
-	if x > a && x < b {
-		if fx := f(x); fx == 0 {
-			return x
-		} else if (fx < 0) == (fa < 0) {
+	if !(x > a && x < b) {
+		x = 0.5 * (a + b)
+	}
+	shrink := func(x, fx float64) {
+		if (fx < 0) == (fa < 0) {
 			a, fa = x, fx
 		} else {
 			b, fb = x, fx
 		}
 	}
-	side := 0
-	for range 200 {
-		if b-a < 1e-3 {
-			break
+	x0, f0 := x, f(x)
+	if f0 == 0 {
+		return x0
+	}
+	shrink(x0, f0)
+	x1 := x0 + 60
+	if !(x1 < b) {
+		x1 = x0 - 60
+	}
+	if !(x1 > a && x1 < b) {
+		x1 = 0.5 * (a + b)
+	}
+	f1 := f(x1)
+	shrink(x1, f1)
+	for i := 0; i < 200; i++ {
+		if f1 == 0 {
+			return x1
 		}
-		x = b - fb*(b-a)/(fb-fa)
-		if !(x > a && x < b) {
-			x = 0.5 * (a + b)
+		var x2 float64
+		if f1 != f0 {
+			x2 = x1 - f1*(x1-x0)/(f1-f0)
 		}
-		fx := f(x)
-		if fx == 0 {
-			return x
+		if f1 == f0 || !(x2 > a && x2 < b) || i >= 30 {
+			x2 = 0.5 * (a + b)
 		}
-		if (fx < 0) == (fb < 0) {
-			b, fb = x, fx
-			if side == -1 {
-				fa /= 2
-			}
-			side = -1
-		} else {
-			a, fa = x, fx
-			if side == 1 {
-				fb /= 2
-			}
-			side = 1
+		f2 := f(x2)
+		shrink(x2, f2)
+		if math.Abs(x2-x1) < 1e-3 || b-a < 1e-3 {
+			return x2
 		}
-		if math.Abs(b-a) < 1e-3 {
-			break
-		}
+		x0, f0, x1, f1 = x1, f1, x2, f2
 	}
 	return 0.5 * (a + b)
 }

@@ -15,7 +15,7 @@ import (
 // values; each is then solved on the true apparent positions — the Moon of
 // moon.go (ELP/MPP02 with light time and nutation) and the Sun of sun.go
 // (VSOP87D, FK5, nutation, aberration) — by the secant method until the step
-// is below 1 ms. Nutation in longitude appears in both longitudes and cancels.
+// is below 1 ms.
 // The solution is in Terrestrial Time and converted to UTC with the ΔT model
 // of deltat.go.
 //
@@ -72,15 +72,14 @@ func meanPhaseJDE(k float64) float64 {
 }
 
 // moonSunElongation returns the apparent geocentric elongation in longitude
-// λ☾ − λ☉ at jde (TT), radians in [0, 2π). Nutation in longitude is left out
-// of both longitudes: it cancels.
+// λ☾ − λ☉ at jde (TT), radians in [0, 2π): the Moon as in moonApparent
+// (without the latitude series, not needed here) and the Sun's apparent
+// longitude of sun.go.
 func moonSunElongation(jde float64) float64 {
 	lon, dist := elpLongitudeDistance(jde - moonMeanLightTime)
 	lon -= (dist/speedOfLightKmS/secondsPerDay - moonMeanLightTime) * moonMeanMotion
-	L, B, R := earthHeliocentric(jde)
-	sun, _ := sunFK5(jde, L, B)
-	sun -= 20.4898 * arcsec2rad / R
-	return norm2Pi(lon - sun)
+	dpsi, _ := nutationRad(jde)
+	return norm2Pi(lon + dpsi - sunApparentLongitude(jde))
 }
 
 // truePhaseJDE solves λ☾ − λ☉ = target (radians) starting from the mean

@@ -15,6 +15,11 @@ It writes, next to this script:
                                Earth perihelion/aphelion (TT) 1900-2100
   crosscheck-sun-erfa.csv      sunrise/sunset/twilight/golden-hour/custom
                                crossings and solar noon for site-dates
+  crosscheck-nutation-erfa.csv the complete IAU 1980 nutation (eraNut80),
+                               IAU 1980 mean obliquity (eraObl80) and IAU 1982
+                               mean sidereal time (eraGmst82), 1800-2200
+
+Pass section names (sunpos, seasons, events, nutation) to write only those.
 
 The model here shares nothing with astro/ except the conventions:
 Earth: eraEpv00 (heliocentric and barycentric Earth, fitted to DE405,
@@ -178,8 +183,36 @@ def day_events(lat, lon, elev, jd0, thresholds):
     return out
 
 
+def nutation():
+    with open(os.path.join(HERE, "crosscheck-nutation-erfa.csv"), "w", newline="") as f:
+        w = csv.writer(f)
+        w.writerow(["jd", "dpsi_arcsec", "deps_arcsec", "eps0_arcsec", "gmst_deg", "source"])
+        jd = 2378496.5 + np.arange(0, 146100, 97.3)  # 1800-2200
+        dpsi, deps = erfa.nut80(jd, 0.0)
+        eps0 = erfa.obl80(jd, 0.0)
+        gmst = erfa.gmst82(jd, 0.0)
+        r = 180 * 3600 / math.pi
+        for i in range(len(jd)):
+            w.writerow(["%.5f" % jd[i], "%.7f" % (dpsi[i] * r), "%.7f" % (deps[i] * r), "%.7f" % (eps0[i] * r),
+                        "%.10f" % math.degrees(gmst[i]), SOURCE.replace("IAU 2006/2000A + eraEpv00", "eraNut80, eraObl80, eraGmst82")])
+
+
 def main():
+    sections = set(sys.argv[1:]) or {"sunpos", "seasons", "events", "nutation"}
     rng = np.random.default_rng(20270101)
+    if "nutation" in sections:
+        nutation()
+    if "sunpos" not in sections:
+        tts = np.sort(rng.uniform(2415020.5, 2488069.5, 400))  # keep the random sequence
+    else:
+        sun_positions(rng)
+    if "seasons" in sections:
+        seasons()
+    if "events" in sections:
+        events(rng)
+
+
+def sun_positions(rng):
     # --- sun positions
     with open(os.path.join(HERE, "crosscheck-sunpos-erfa.csv"), "w", newline="") as f:
         w = csv.writer(f)
@@ -190,6 +223,9 @@ def main():
         for i in range(len(tts)):
             w.writerow(["%.6f" % tts[i], "%.9f" % math.degrees(ra[i]), "%.9f" % math.degrees(dec[i]),
                         "%.9f" % math.degrees(lam[i]), "%.10f" % dist[i], SOURCE])
+
+
+def seasons():
     # --- seasons, cross-quarters, apsides (TT)
     with open(os.path.join(HERE, "crosscheck-seasons-erfa.csv"), "w", newline="") as f:
         w = csv.writer(f)
@@ -217,6 +253,9 @@ def main():
                         a = m1
                 r = 0.5 * (a + b)
                 w.writerow([year, kind, "%.8f" % r, "%.10f" % earth_sun_distance(r)[0], SOURCE])
+
+
+def events(rng):
     # --- daily events
     thresholds = [-0.8333, -6.0, -12.0, -18.0, 6.0, -4.0, 20.0]
     sites = []

@@ -51,7 +51,7 @@ Parametrised kinds: sun-altitude:<degrees> (e.g. sun-altitude:-3), photoperiod:<
 Formats: table (local times, readable), json (UTC instants, RFC 3339 with milliseconds),
 csv (both).` + exitStatusHelp,
 		Example: `  heliocal events --lat 48.2 --lon 16.4 --elev 180 --tz Europe/Vienna --from 2027-01-01 --to 2027-01-07
-  heliocal events --site ridge-observatory --kinds dark-window,moon-phases --format json`,
+  heliocal events --site cairnmoor --kinds dark-window,moon-phases --format json`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
 			o.placeFlag = cmd.Flags().Changed("lat") || cmd.Flags().Changed("lon")

@@ -38,6 +38,7 @@ type globals struct {
 }
 
 const exitStatusHelp = `
+
 EXIT STATUS
   0  success
   1  the command failed while running (e.g. a file could not be written)

@@ -1,0 +1,312 @@
+// Package deploy holds deployment examples (systemd, container, Kubernetes,
+// nginx); this test checks that they are well-formed and agree with each
+// other and with the configuration they carry.
+package deploy
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"regexp"
+	"strconv"
+	"strings"
+	"testing"
+
+	"go.yaml.in/yaml/v3"
+
+	"heliocal/config"
+)
+
+type doc = map[string]any
+
+// manifests reads every YAML document under kubernetes/.
+func manifests(t *testing.T) map[string]doc { // kind/name → document
+	t.Helper()
+	files, err := filepath.Glob("kubernetes/*.yaml")
+	if err != nil || len(files) == 0 {
+		t.Fatalf("no manifests: %v", err)
+	}
+	out := map[string]doc{}
+	for _, f := range files {
+		data, err := os.ReadFile(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		dec := yaml.NewDecoder(bytes.NewReader(data))
+		for i := 0; ; i++ {
+			var d doc
+			err := dec.Decode(&d)
+			if errors.Is(err, io.EOF) {
+				break
+			}
+			if err != nil {
+				t.Fatalf("%s document %d: %v", f, i, err)
+			}
+			if d == nil {
+				continue
+			}
+			kind, _ := d["kind"].(string)
+			name, _ := get(d, "metadata", "name").(string)
+			if d["apiVersion"] == nil || kind == "" || name == "" {
+				t.Fatalf("%s document %d: apiVersion, kind and metadata.name are required", f, i)
+			}
+			key := kind + "/" + name
+			if _, dup := out[key]; dup {
+				t.Fatalf("%s: %s defined twice", f, key)
+			}
+			out[key] = d
+		}
+	}
+	return out
+}
+
+// get walks maps by key and lists by index ("0").
+func get(v any, path ...string) any {
+	for _, p := range path {
+		switch x := v.(type) {
+		case map[string]any:
+			v = x[p]
+		case []any:
+			i, err := strconv.Atoi(p)
+			if err != nil || i >= len(x) {
+				return nil
+			}
+			v = x[i]
+		default:
+			return nil
+		}
+	}
+	return v
+}
+
+func str(v any) string { return fmt.Sprint(v) }
+
+func TestKubernetesServe(t *testing.T) {
+	m := manifests(t)
+	dep := m["Deployment/heliocal"]
+	if dep == nil {
+		t.Fatal("no Deployment/heliocal")
+	}
+	if r, _ := get(dep, "spec", "replicas").(int); r < 2 {
+		t.Errorf("replicas %v, want 2 or more", get(dep, "spec", "replicas"))
+	}
+	pod := get(dep, "spec", "template", "spec")
+	if get(pod, "securityContext", "runAsNonRoot") != true {
+		t.Error("pod does not require a non-root user")
+	}
+	c := get(pod, "containers", "0")
+	args := get(c, "args").([]any)
+	if str(args[0]) != "serve" || !contains(args, "--config") {
+		t.Errorf("container args %v: want serve --config FILE", args)
+	}
+	for _, probe := range []string{"startupProbe", "readinessProbe", "livenessProbe"} {
+		if p := get(c, probe, "httpGet", "path"); p != "/healthz" {
+			t.Errorf("%s path %v, want /healthz", probe, p)
+		}
+	}
+	if get(c, "resources", "requests", "cpu") == nil || get(c, "resources", "limits", "memory") == nil {
+		t.Error("container lacks resource requests or limits")
+	}
+	sc := get(c, "securityContext")
+	if get(sc, "readOnlyRootFilesystem") != true || get(sc, "allowPrivilegeEscalation") != false {
+		t.Errorf("container securityContext %v", sc)
+	}
+	checkConfigVolume(t, m, pod, c, args)
+
+	// The Service selects the Deployment's pods and targets a named port.
+	svc := m["Service/heliocal"]
+	labels := get(dep, "spec", "template", "metadata", "labels").(map[string]any)
+	for k, v := range get(svc, "spec", "selector").(map[string]any) {
+		if labels[k] != v {
+			t.Errorf("Service selector %s=%v does not match the pod labels %v", k, v, labels)
+		}
+	}
+	target := str(get(svc, "spec", "ports", "0", "targetPort"))
+	found := false
+	for _, p := range get(c, "ports").([]any) {
+		found = found || str(get(p, "name")) == target
+	}
+	if !found {
+		t.Errorf("Service targetPort %q is not a container port name", target)
+	}
+}
+
+func TestKubernetesPublish(t *testing.T) {
+	m := manifests(t)
+	cj := m["CronJob/heliocal-publish"]
+	if cj == nil {
+		t.Fatal("no CronJob/heliocal-publish")
+	}
+	job := get(cj, "spec", "jobTemplate", "spec")
+	if get(job, "completionMode") != "Indexed" {
+		t.Errorf("completionMode %v, want Indexed", get(job, "completionMode"))
+	}
+	pod := get(job, "template", "spec")
+	c := get(pod, "containers", "0")
+	args := get(c, "args").([]any)
+	if str(args[0]) != "publish" {
+		t.Errorf("args %v: want publish", args)
+	}
+	shard := argAfter(args, "--shard")
+	mm := regexp.MustCompile(`^\$\(JOB_COMPLETION_INDEX\)/(\d+)$`).FindStringSubmatch(shard)
+	if mm == nil {
+		t.Fatalf("--shard %q, want $(JOB_COMPLETION_INDEX)/N", shard)
+	}
+	n, _ := strconv.Atoi(mm[1])
+	if get(job, "completions") != n || get(job, "parallelism") != n {
+		t.Errorf("--shard .../%d but completions %v, parallelism %v", n, get(job, "completions"), get(job, "parallelism"))
+	}
+	// --out must be a mounted volume backed by the shared claim.
+	out := argAfter(args, "--out")
+	vol := mountAt(c, out)
+	claim := str(get(volumeNamed(pod, vol), "persistentVolumeClaim", "claimName"))
+	pvc := m["PersistentVolumeClaim/"+claim]
+	if pvc == nil {
+		t.Fatalf("--out %s: volume %q has no PersistentVolumeClaim in the manifests", out, vol)
+	}
+	if !contains(get(pvc, "spec", "accessModes").([]any), "ReadWriteMany") {
+		t.Error("shards on several nodes need a ReadWriteMany volume")
+	}
+	if get(pod, "restartPolicy") != "Never" && get(pod, "restartPolicy") != "OnFailure" {
+		t.Errorf("restartPolicy %v", get(pod, "restartPolicy"))
+	}
+	if get(c, "securityContext", "readOnlyRootFilesystem") != true || get(pod, "securityContext", "runAsNonRoot") != true {
+		t.Error("publish container not read-only and non-root")
+	}
+	checkConfigVolume(t, m, pod, c, args)
+}
+
+// checkConfigVolume: --config names a file in a mounted ConfigMap, and that
+// file is a valid heliocal configuration.
+func checkConfigVolume(t *testing.T, m map[string]doc, pod, c any, args []any) {
+	t.Helper()
+	path := argAfter(args, "--config")
+	dir, file := filepath.Split(path)
+	vol := mountAt(c, filepath.Clean(dir))
+	cmName := str(get(volumeNamed(pod, vol), "configMap", "name"))
+	cm := m["ConfigMap/"+cmName]
+	if cm == nil {
+		t.Fatalf("--config %s: no ConfigMap behind volume %q", path, vol)
+	}
+	text, ok := get(cm, "data", file).(string)
+	if !ok {
+		t.Fatalf("ConfigMap %s has no key %q", cmName, file)
+	}
+	if _, err := config.Parse(strings.NewReader(text), "yaml"); err != nil {
+		t.Errorf("ConfigMap %s/%s is not a valid configuration: %v", cmName, file, err)
+	}
+}
+
+func argAfter(args []any, flag string) string {
+	for i, a := range args {
+		if str(a) == flag && i+1 < len(args) {
+			return str(args[i+1])
+		}
+	}
+	return ""
+}
+
+func contains(list []any, s string) bool {
+	for _, v := range list {
+		if str(v) == s {
+			return true
+		}
+	}
+	return false
+}
+
+func mountAt(c any, path string) string {
+	for _, vm := range get(c, "volumeMounts").([]any) {
+		if str(get(vm, "mountPath")) == path {
+			return str(get(vm, "name"))
+		}
+	}
+	return ""
+}
+
+func volumeNamed(pod any, name string) any {
+	for _, v := range get(pod, "volumes").([]any) {
+		if str(get(v, "name")) == name {
+			return v
+		}
+	}
+	return nil
+}
+
+// TestSystemdUnits: the units carry the hardening the README promises, and
+// systemd-analyze verify accepts them when it is installed.
+func TestSystemdUnits(t *testing.T) {
+	want := map[string][]string{
+		"heliocal.service": {"ExecStart=/usr/local/bin/heliocal serve --config ", "ExecReload=/bin/kill -HUP $MAINPID",
+			"DynamicUser=yes", "ProtectSystem=strict", "ProtectHome=yes", "NoNewPrivileges=yes", "PrivateTmp=yes",
+			"CapabilityBoundingSet=\n", "RestrictAddressFamilies=", "SystemCallFilter=@system-service"},
+		"heliocal-publish.service": {"Type=oneshot", "ExecStart=/usr/local/bin/heliocal publish --config ",
+			"--out /var/lib/heliocal/public", "ProtectSystem=strict", "NoNewPrivileges=yes", "StateDirectory=heliocal"},
+		"heliocal-publish.timer": {"OnCalendar=", "Persistent=true", "WantedBy=timers.target"},
+	}
+	for name, lines := range want {
+		data, err := os.ReadFile(filepath.Join("systemd", name))
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, l := range lines {
+			if !bytes.Contains(data, []byte(l)) {
+				t.Errorf("%s lacks %q", name, l)
+			}
+		}
+	}
+	analyze, err := exec.LookPath("systemd-analyze")
+	if err != nil {
+		t.Skip("systemd-analyze not installed")
+	}
+	// verify wants the executable to exist: point it at this test binary.
+	self, err := os.Executable()
+	if err != nil {
+		t.Fatal(err)
+	}
+	dir := t.TempDir()
+	var paths []string
+	for name := range want {
+		data, _ := os.ReadFile(filepath.Join("systemd", name))
+		data = bytes.ReplaceAll(data, []byte("/usr/local/bin/heliocal"), []byte(self))
+		p := filepath.Join(dir, name)
+		if err := os.WriteFile(p, data, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		paths = append(paths, p)
+	}
+	out, err := exec.Command(analyze, append([]string{"verify"}, paths...)...).CombinedOutput()
+	if err != nil || len(bytes.TrimSpace(out)) > 0 {
+		t.Errorf("systemd-analyze verify: %v\n%s", err, out)
+	}
+}
+
+func TestDockerfile(t *testing.T) {
+	data, err := os.ReadFile("container/Dockerfile")
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := string(data)
+	for _, want := range []string{"FROM golang:1.26 AS build", "CGO_ENABLED=0", "-trimpath", "./cmd/heliocal",
+		"COPY --from=build", "EXPOSE 8080", `ENTRYPOINT ["/heliocal"]`, `CMD ["serve"]`} {
+		if !strings.Contains(s, want) {
+			t.Errorf("Dockerfile lacks %q", want)
+		}
+	}
+	user := regexp.MustCompile(`(?m)^USER (\S+)`).FindStringSubmatch(s)
+	if user == nil || strings.HasPrefix(user[1], "root") || strings.HasPrefix(user[1], "0") {
+		t.Errorf("final stage runs as %v, want a non-root USER", user)
+	}
+	// The image has no zoneinfo files: the binary must embed the tz database.
+	main, err := os.ReadFile("../cmd/heliocal/main.go")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.Contains(main, []byte(`_ "time/tzdata"`)) {
+		t.Error("cmd/heliocal does not import time/tzdata; the distroless image has no zone files")
+	}
+}

@@ -2,7 +2,6 @@ package astro
 
 import (
 	"encoding/csv"
-	"fmt"
 	"math"
 	"os"
 	"sort"
@@ -83,29 +82,6 @@ func TestMeanPhaseMeeus49(t *testing.T) {
 			t.Errorf("mean phase k=%v: JDE %.5f, want %.5f", c.k, got, c.want)
 		}
 	}
-}
-
-// Meeus, Astronomical Algorithms 2nd ed., Example 49.a, p. 353: the new moon
-// of 1977 February, JDE 2443192.65118 (1977-02-18 03:37:42 TD) by the
-// chapter's method; printed to 1e-4 day (9 s).
-func ExampleMoonPhases() {
-	phases, err := astroMoonPhasesForExample()
-	if err != nil {
-		fmt.Println(err)
-		return
-	}
-	for _, p := range phases {
-		if p.Kind == NewMoon {
-			jde, _ := JulianEphemerisDay(p.Time)
-			fmt.Printf("%s %.4f\n", p.Kind, jde)
-		}
-	}
-	// Output:
-	// new moon 2443192.6512
-}
-
-func astroMoonPhasesForExample() ([]Phase, error) {
-	return MoonPhases(time.Date(1977, 2, 10, 0, 0, 0, 0, time.UTC), time.Date(1977, 2, 25, 0, 0, 0, 0, time.UTC))
 }
 
 var phaseKindByName = map[string]PhaseKind{

@@ -1,0 +1,68 @@
+package astro
+
+import (
+	"errors"
+	"testing"
+	"time"
+)
+
+// TestMoonBadInput: out-of-range instants are *RangeError (matching
+// ErrOutOfRange) naming the input and the supported span; a reversed span
+// and invalid observers are clear errors naming the field and the value.
+func TestMoonBadInput(t *testing.T) {
+	early := time.Date(1799, 12, 31, 0, 0, 0, 0, time.UTC)
+	day := time.Date(2026, 5, 1, 0, 0, 0, 0, time.UTC)
+	me, err := NewMoonEphemeris(day, day.AddDate(0, 0, 2))
+	if err != nil {
+		t.Fatal(err)
+	}
+	bad := Observer{Latitude: 12, Longitude: 190}
+	for _, tc := range []struct {
+		name  string
+		err   func() error
+		is    error
+		wantS string
+	}{
+		{"Moon before 1800", func() error { _, err := Moon(early); return err }, ErrOutOfRange,
+			"astro: time 1799-12-31T00:00:00Z outside the supported range 1800-01-01..2200-12-31"},
+		{"MoonIllumination after 2200", func() error { _, err := MoonIllumination(time.Date(2201, 1, 1, 0, 0, 0, 0, time.UTC)); return err }, ErrOutOfRange, ""},
+		{"MoonPhases from before 1800", func() error { _, err := MoonPhases(early, day); return err }, ErrOutOfRange,
+			"astro: moon phases from 1799-12-31T00:00:00Z outside the supported range 1800-01-01..2200-12-31"},
+		{"MoonPhases reversed", func() error { _, err := MoonPhases(day, day.AddDate(0, 0, -1)); return err }, nil,
+			"astro: moon phases: to 2026-04-30T00:00:00Z is before from 2026-05-01T00:00:00Z"},
+		{"NewMoonEphemeris before 1800", func() error { _, err := NewMoonEphemeris(early, day); return err }, ErrOutOfRange, ""},
+		{"MoonRiseSet longitude 190", func() error { _, err := me.MoonRiseSet(bad, day, day.AddDate(0, 0, 1)); return err }, ErrInvalidInput,
+			"astro: observer longitude 190: must be within -180..180 degrees (east positive)"},
+		{"MoonRiseSet outside coverage", func() error { _, err := me.MoonRiseSet(Observer{}, day.AddDate(0, 0, 10), day.AddDate(0, 0, 11)); return err }, ErrOutOfRange, ""},
+		{"MoonDays nil location", func() error { _, err := me.MoonDays(Observer{}, nil, day, day); return err }, nil, "astro: MoonDays: nil location"},
+		{"MoonDays reversed", func() error { _, err := me.MoonDays(Observer{}, time.UTC, day.AddDate(0, 0, 1), day); return err }, nil,
+			"astro: MoonDays: last date 2026-05-01 is before the first 2026-05-02"},
+		{"MoonFrom latitude -91", func() error { _, err := MoonFrom(Observer{Latitude: -91}, day); return err }, ErrInvalidInput,
+			"astro: observer latitude -91: must be within -90..90 degrees"},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			err := tc.err()
+			if err == nil {
+				t.Fatal("no error")
+			}
+			if tc.is != nil && !errors.Is(err, tc.is) {
+				t.Errorf("%v does not match %v", err, tc.is)
+			}
+			if tc.wantS != "" && err.Error() != tc.wantS {
+				t.Errorf("error %q, want %q", err, tc.wantS)
+			}
+		})
+	}
+}
+
+// TestPhaseKindString: the names used in feeds and errors.
+func TestPhaseKindString(t *testing.T) {
+	for k, want := range map[PhaseKind]string{NewMoon: "new moon", FirstQuarter: "first quarter", FullMoon: "full moon", LastQuarter: "last quarter", 7: "PhaseKind(7)"} {
+		if k.String() != want {
+			t.Errorf("%d: %q, want %q", int(k), k.String(), want)
+		}
+	}
+	if NightState(9).String() != "NightState(9)" || Moonlit.String() != "moonlit" {
+		t.Errorf("NightState names")
+	}
+}

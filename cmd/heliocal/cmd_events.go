@@ -263,7 +263,7 @@ func toJSONEvent(e feed.Event) jsonEvent {
 		r := e.Distance
 		j.Distance = &r
 	case "photoperiod", "sunrise", "sunset":
-		s := e.DayLength.Seconds()
+		s := math.Round(e.DayLength.Seconds()*1000) / 1000
 		j.DayLength = &s
 	}
 	if strings.Contains(e.Kind.Name, "moon") || e.Kind.Name == "first-quarter" || e.Kind.Name == "last-quarter" {

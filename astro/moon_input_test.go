@@ -33,7 +33,10 @@ func TestMoonBadInput(t *testing.T) {
 		{"NewMoonEphemeris before 1800", func() error { _, err := NewMoonEphemeris(early, day); return err }, ErrOutOfRange, ""},
 		{"MoonRiseSet longitude 190", func() error { _, err := me.MoonRiseSet(bad, day, day.AddDate(0, 0, 1)); return err }, ErrInvalidInput,
 			"astro: observer longitude 190: must be within -180..180 degrees (east positive)"},
-		{"MoonRiseSet outside coverage", func() error { _, err := me.MoonRiseSet(Observer{}, day.AddDate(0, 0, 10), day.AddDate(0, 0, 11)); return err }, ErrOutOfRange, ""},
+		{"MoonRiseSet outside coverage", func() error {
+			_, err := me.MoonRiseSet(Observer{}, day.AddDate(0, 0, 10), day.AddDate(0, 0, 11))
+			return err
+		}, ErrOutOfRange, ""},
 		{"MoonDays nil location", func() error { _, err := me.MoonDays(Observer{}, nil, day, day); return err }, nil, "astro: MoonDays: nil location"},
 		{"MoonDays reversed", func() error { _, err := me.MoonDays(Observer{}, time.UTC, day.AddDate(0, 0, 1), day); return err }, nil,
 			"astro: MoonDays: last date 2026-05-01 is before the first 2026-05-02"},

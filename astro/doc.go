@@ -1,0 +1,91 @@
+// Package astro computes the positions and events of the Sun and the Moon
+// for heliocal: time scales, the apparent Sun and Moon, equinoxes and
+// solstices, the Earth's perihelion and aphelion, the Moon's phases, and
+// horizon events (sunrise, sunset, twilight, golden and blue hour, any
+// altitude threshold, solar noon, moonrise, moonset, dark-sky windows) for
+// any site on the Earth.
+//
+// It implements published methods with the standard library only: no I/O,
+// no files read at run time (the coefficient tables are generated Go
+// source), no logging.
+//
+// # Sources
+//
+//	file                      method                                       published source
+//	julian.go                 Julian day ↔ time.Time                       Meeus, Astronomical Algorithms 2nd ed. (1998), ch. 7
+//	deltat.go, zz_deltat.go   UTC → TT, UT1; ΔT model                      USNO/IERS observed ΔT 1973–2023; Espenak & Meeus polynomials (NASA, 2006); IERS leap seconds
+//	nutation.go               nutation, obliquity                          IAU 1980 theory, Meeus ch. 22 (Table 22.A, eq. 22.2)
+//	sidereal.go               mean and apparent sidereal time              Meeus ch. 12 (eq. 12.4, IAU 1982)
+//	vsop87.go, zz_vsop87_*.go the Earth's heliocentric position            VSOP87D, Bretagnon & Francou, A&A 202, 309 (1988); Meeus ch. 32
+//	sun.go                    apparent Sun, equation of time               Meeus ch. 25 (higher accuracy), 28; FK5 correction eq. 32.3;
+//	                                                                       IAU 2000 precession-rate correction (Mathews et al. 2002)
+//	seasons.go                equinoxes, solstices, cross-quarters         Meeus ch. 27 (Table 27.B starting values, iterated on sun.go)
+//	apsides.go                perihelion, aphelion (Earth centre)          Meeus ch. 38 (eq. 38.1 start), extrema of VSOP87D R
+//	ephemeris.go, horizon.go  shared track, threshold crossings, transits  Meeus ch. 15 (hour-angle estimate), ch. 11 (observer, WGS 84),
+//	                                                                       USNO rise/set and twilight definitions
+//	elp.go, zz_elp_moon.go    the Moon's geocentric position               ELP/MPP02 (DE405 fit), Chapront & Francou, A&A 404, 735 (2003)
+//	moon.go                   apparent Moon (light time, nutation),        Meeus ch. 47 (method), 48 (illuminated fraction, bright limb)
+//	                          illumination
+//	phases.go                 new, first quarter, full, last quarter       Meeus ch. 49 (starting values), iterated on moon.go and sun.go
+//	moonrise.go               moonrise, moonset, transit                   USNO definitions, the search of horizon.go
+//	darksky.go                dark-sky windows                             USNO astronomical twilight; moonrise.go
+//
+// # Conventions
+//
+// Instants are time.Time and are read as UTC. UTC is converted to
+// Terrestrial Time (TT, for the theories) and to UT1 (for the Earth's
+// rotation) as deltat.go describes: TT − UTC from the leap seconds and
+// UT1 − UTC from the observed ΔT within 1972–2023, UT1 = UTC outside, and a
+// ΔT model (observed values, Espenak–Meeus polynomials, a smooth
+// extrapolation after 2023). Julian days of TT are called jde, of UT jd.
+// Exported angles are degrees, distances au (Sun) or km (Moon), durations
+// time.Duration. Longitude is east-positive everywhere (ISO 6709): unlike
+// Meeus's west-positive convention, and there is no conversion anywhere.
+// Altitudes of horizon events are topocentric (parallax included: 8.794″/r
+// for the Sun) and geometric: refraction is part of the thresholds
+// (sunrise −0.8333° = 34′ of refraction + 16′ of semidiameter; the dip of the
+// horizon 1.76′·√h for an elevated observer; twilight −6°, −12°, −18°).
+//
+// The supported span is 1800-01-01 to 2200-12-31 (MinTime, MaxTime); outside
+// it functions return a *RangeError that matches ErrOutOfRange. Invalid
+// input (a latitude of 95°) gives an *InputError naming the field and
+// value, matching ErrInvalidInput. Polar day and polar night are not
+// errors: they are states (State, Day) of the result.
+//
+// # Accuracy
+//
+// Measured in the package's tests against independent references (ERFA,
+// the IAU SOFA-derived library, with IAU 2006/2000A precession-nutation and
+// its DE405-fitted Earth; USNO tables; Meeus's worked examples):
+//
+//   - apparent Sun 1900–2100: within 0.06″ of ERFA in longitude, right
+//     ascension and declination;
+//   - equinoxes, solstices and cross-quarters 1900–2100: within 1.2 s (TT)
+//     of ERFA; USNO's minute-rounded table 1905–2100 within 2 min (ΔT
+//     models differ after 2023);
+//   - perihelion and aphelion: within 1 min of ERFA (TT) and of Meeus's
+//     table;
+//   - sunrise, sunset, twilight, other thresholds, solar noon, 1973–2023:
+//     within 0.05 s of ERFA up to 66° of latitude, every event present
+//     from 89° S to 89° N; within the minute rounding of USNO's tables.
+//
+// # Incomplete
+//
+//   - Nutation is the IAU 1980 theory in the 63 terms of Meeus Table 22.A,
+//     not the complete 106 terms nor IAU 2000A: the dropped terms are below
+//     0.003″ (measured against the complete series), and IAU 1980 stays
+//     within 0.05″ of IAU 2000A; both are far below what a sunrise or a
+//     season instant can show (0.05″ of solar longitude is 1.2 s).
+//   - Polar motion and diurnal aberration (0.3″ at most) are ignored.
+//   - Refraction is not modelled beyond the standard thresholds: real
+//     refraction near the horizon varies with temperature and pressure by
+//     minutes of time at sunrise, more at high latitudes.
+//   - UT1 − UTC is known only where ΔT is observed (1972–2023); elsewhere
+//     UT1 = UTC is assumed, which is within 0.9 s for future dates as long
+//     as leap seconds keep |UT1 − UTC| below 0.9 s.
+//   - ΔT before 1973 and after 2023 is a model; for events in UT the
+//     uncertainty grows to a minute by 2100 (not for sunrise and sunset,
+//     which depend on UT1 only through the Earth's rotation).
+//   - The Julian calendar (dates before 1582) is not supported: the
+//     supported span starts in 1800.
+package astro

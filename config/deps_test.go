@@ -1,0 +1,31 @@
+package config
+
+import (
+	"os/exec"
+	"strings"
+	"testing"
+)
+
+// TestImports keeps config at the bottom of the module: it imports the
+// standard library, viper (and the decoder viper uses) and the cron parser
+// that checks the refresh schedule, and no heliocal package.
+func TestImports(t *testing.T) {
+	out, err := exec.Command("go", "list", "-f", `{{join .Imports "\n"}}`, ".").Output()
+	if err != nil {
+		t.Skipf("go list unavailable: %v", err)
+	}
+	allowed := map[string]bool{
+		"github.com/spf13/viper":             true,
+		"github.com/go-viper/mapstructure/v2": true,
+		"github.com/robfig/cron/v3":          true,
+	}
+	for _, imp := range strings.Fields(string(out)) {
+		first, _, _ := strings.Cut(imp, "/")
+		if !strings.Contains(first, ".") && first != "heliocal" {
+			continue // standard library
+		}
+		if !allowed[imp] {
+			t.Errorf("config imports %s", imp)
+		}
+	}
+}

@@ -15,9 +15,9 @@ func TestImports(t *testing.T) {
 		t.Skipf("go list unavailable: %v", err)
 	}
 	allowed := map[string]bool{
-		"github.com/spf13/viper":             true,
+		"github.com/spf13/viper":              true,
 		"github.com/go-viper/mapstructure/v2": true,
-		"github.com/robfig/cron/v3":          true,
+		"github.com/robfig/cron/v3":           true,
 	}
 	for _, imp := range strings.Fields(string(out)) {
 		first, _, _ := strings.Cut(imp, "/")

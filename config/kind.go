@@ -87,7 +87,7 @@ var kindTable = []kindDef{
 	{name: "moonrise", family: FamilyMoon, flags: flagMoon, doc: "upper limb of the Moon on the horizon, rising"},
 	{name: "moonset", family: FamilyMoon, flags: flagMoon, doc: "upper limb of the Moon on the horizon, setting"},
 	{name: "moon-transit", family: FamilyMoon, flags: flagMoon, doc: "the Moon crosses the meridian"},
-	{name: "dark-window", family: FamilyMoon, flags: flagMoon | flagSpan, doc: "spans of astronomical night with the Moon below the horizon (or dimmer than max_illumination)"},
+	{name: "dark-window", family: FamilyMoon, flags: flagMoon | flagSpan, doc: "spans of astronomical night with the Moon below the horizon (or lit less than max_illumination)"},
 }
 
 var kindIndex = func() map[string]*kindDef {

@@ -246,13 +246,20 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 
 	step := float64(plotW) / float64(len(days))
 	for i, d := range days {
-		// A tick at each first of the month, and a label for the first day
-		// when its month has at least 12 days left in the chart.
-		if d.Date.Day() != 1 && (i != 0 || time.Date(d.Date.Year(), d.Date.Month()+1, 1, 0, 0, 0, 0, time.UTC).Sub(d.Date) < 12*24*time.Hour) {
+		// A tick at each first of the month (and at the start), labelled
+		// when at least 12 days of that month are in the chart.
+		if d.Date.Day() != 1 && i != 0 {
 			continue
 		}
 		x := plotLeft + float64(i)*step
-		v.Months = append(v.Months, tickView{X: num(x), TX: num(x + 3), TY: num(plotBottom + 14), Label: d.Date.Format("Jan")})
+		tv := tickView{X: num(x), TX: num(x + 3), TY: num(plotBottom + 14)}
+		end := time.Date(d.Date.Year(), d.Date.Month()+1, 1, 0, 0, 0, 0, time.UTC)
+		if n := len(days) - i; end.Sub(d.Date) >= 12*24*time.Hour && n >= 12 {
+			tv.Label = d.Date.Format("Jan")
+		}
+		if d.Date.Day() == 1 || tv.Label != "" {
+			v.Months = append(v.Months, tv)
+		}
 	}
 	for h := 0; h <= 24; h += 6 {
 		y := yOf(float64(h))

@@ -244,7 +244,7 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{
 <rect class="night" x="44" y="30" width="700" height="240"/>
 {{range .Bands}}<polygon class="{{.Class}}" points="{{.Points}}"/>
 {{end}}{{range .Hours}}<line class="grid" x1="44" x2="744" y1="{{.Y}}" y2="{{.Y}}"/><text class="yl" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>
-{{end}}{{range .Months}}<line class="tick" x1="{{.X}}" x2="{{.X}}" y1="270" y2="275"/><text x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>
+{{end}}{{range .Months}}<line class="tick" x1="{{.X}}" x2="{{.X}}" y1="270" y2="275"/>{{if .Label}}<text x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>{{end}}
 {{end}}{{range .Levels}}<line class="level" x1="44" x2="744" y1="{{.Y}}" y2="{{.Y}}"/><text class="ll" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>
 {{end}}{{range .Marks}}<line class="mark" x1="{{.X}}" x2="{{.X}}" y1="{{.Y1}}" y2="{{.Y2}}"><title>{{.Label}}, {{.Date}}</title></line>{{if .Shown}}<text class="ml" x="{{.X}}" y="{{.TY}}" text-anchor="{{.Anchor}}">{{.Label}}</text>{{end}}
 {{end}}</svg>

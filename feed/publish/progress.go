@@ -134,8 +134,8 @@ func Summary(st Stats, dir string) string {
 			st.TempRemoved, plural(st.TempRemoved, "file", "files"))
 	}
 	for _, f := range st.Oversize {
-		fmt.Fprintf(&b, "warning: %s is %s: some web calendars drop events from subscriptions over about 1 MB; shorten its window or split it by kind\n",
-			f.File, formatBytes(int64(f.Bytes)))
+		fmt.Fprintf(&b, "warning: %s is %s, over the %s limit: some web calendars drop events from larger subscriptions; shorten its window or split it by kind\n",
+			f.File, formatBytes(int64(f.Bytes)), formatBytes(int64(st.MaxFeedBytes)))
 	}
 	return b.String()
 }

@@ -210,6 +210,7 @@ func Publish(ctx context.Context, srcs []Source, opts RenderOptions, w *Writer) 
 		p.Start(len(sel))
 	}
 	limit := opts.maxFeedBytes()
+	st.MaxFeedBytes = limit
 	var l listing
 	var stamps []time.Time
 	err = renderAll(ctx, sel, &opts, func(r rendered) error {

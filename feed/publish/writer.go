@@ -68,8 +68,10 @@ type Stats struct {
 	Events         int   // entries across the run's feeds
 	Bytes          int64 // bytes of the run's .ics files
 	TempRemoved    int   // leftover temporary files of an earlier crash removed
-	// Oversize lists the feeds larger than RenderOptions.MaxFeedBytes.
-	Oversize []FeedInfo
+	// Oversize lists the feeds larger than RenderOptions.MaxFeedBytes,
+	// which is recorded in MaxFeedBytes.
+	Oversize     []FeedInfo
+	MaxFeedBytes int
 	// Index is what happened to feeds.json and index.html: IndexWritten,
 	// IndexUnchanged, or IndexPending (sharded, other shards not done yet).
 	Index   string

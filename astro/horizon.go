@@ -143,6 +143,12 @@ func (tr *track) at(sec float64) (gha, dec, dist float64) {
 	return tr.ghaFrom(sec, k, &w), interp(tr.dec, k, &w), interp(tr.dist, k, &w)
 }
 
+// decAt returns the declination (rad) at Unix second sec.
+func (tr *track) decAt(sec float64) float64 {
+	k, w := tr.weights(sec)
+	return interp(tr.dec, k, &w)
+}
+
 func (tr *track) ghaFrom(sec float64, k int, w *[4]float64) float64 {
 	leaps := tr.leap0
 	for _, l := range tr.leaps {
@@ -218,15 +224,25 @@ type extremum struct {
 // passage returns the first instant ≥ from at which the local hour angle
 // equals target modulo 2π, solved to 0.1 ms.
 func (tr *track) passage(st *site, from, target float64) float64 {
-	d := math.Mod(target-tr.hourAngle(st, from), 2*math.Pi)
+	return tr.passageTol(st, from, target, 1e-4)
+}
+
+// wrapPi reduces an angle to [−π, π) (cheaper than math.Remainder).
+func wrapPi(a float64) float64 {
+	return a - 2*math.Pi*math.Floor(a/(2*math.Pi)+0.5)
+}
+
+// passageTol is passage solved to tol seconds.
+func (tr *track) passageTol(st *site, from, target, tol float64) float64 {
+	d := wrapPi(target - tr.hourAngle(st, from)) // forward distance in [0, 2π)
 	if d < 0 {
 		d += 2 * math.Pi
 	}
 	t := from + d/tr.rate
 	for range 8 {
-		e := math.Remainder(tr.hourAngle(st, t)-target, 2*math.Pi)
-		t -= e / tr.rate
-		if math.Abs(e/tr.rate) < 1e-4 {
+		e := wrapPi(tr.hourAngle(st, t)-target) / tr.rate
+		t -= e
+		if math.Abs(e) < tol {
 			break
 		}
 	}
@@ -250,7 +266,7 @@ func (tr *track) extrema(st *site, a, b float64) []extremum {
 	for {
 		target := m * math.Pi
 		upper := math.Mod(m, 2) == 0
-		tp := tr.passage(st, t, target)
+		tp := tr.passageTol(st, t, target, 0.5)
 		if tp > b {
 			break
 		}
@@ -329,37 +345,34 @@ func (tr *track) guess(st *site, sinH0 float64, e0, e1 extremum, rising bool) fl
 }
 
 // estimate estimates a crossing time within (e0, e1) by the hour-angle
-// formula, evaluated twice (the second time with the declination at the
-// first estimate), and returns the rate of change of the sine of the
-// altitude there (per second), or 0 when the formula does not apply.
+// formula with the declination at the middle of the interval, and returns
+// the rate of change of the sine of the altitude there (per second), or 0
+// when the formula does not apply. (A second pass with the declination at
+// the estimate saves less than it costs: the solver's first step does it.)
 func (tr *track) estimate(st *site, sinH0 float64, e0, e1 extremum, rising bool) (g, slope float64) {
-	g = 0.5 * (e0.t + e1.t)
-	_, dec, _ := tr.at(g)
-	for range 2 {
-		sd, cd := math.Sincos(dec)
-		den := st.cosLat * cd
-		if den == 0 {
-			return 0.5 * (e0.t + e1.t), 0
-		}
-		c := (sinH0 - st.sinLat*sd) / den
-		if c < -1 || c > 1 {
-			return 0.5 * (e0.t + e1.t), 0
-		}
-		H0 := math.Acos(c)
-		if rising { // from the lower to the upper culmination: H = −H0
-			g = e1.t - H0/tr.rate
-		} else {
-			g = e0.t + H0/tr.rate
-		}
-		if !(g > e0.t && g < e1.t) {
-			return 0.5 * (e0.t + e1.t), 0
-		}
-		// d(sin h)/dt = −cos φ cos δ sin H · dH/dt, H = ∓H0
-		slope = st.cosLat * cd * math.Sin(H0) * tr.rate
-		if !rising {
-			slope = -slope
-		}
-		_, dec, _ = tr.at(g)
+	mid := 0.5 * (e0.t + e1.t)
+	sd, cd := math.Sincos(tr.decAt(mid))
+	den := st.cosLat * cd
+	if den == 0 {
+		return mid, 0
+	}
+	c := (sinH0 - st.sinLat*sd) / den
+	if c < -1 || c > 1 {
+		return mid, 0
+	}
+	H0 := math.Acos(c)
+	if rising { // from the lower to the upper culmination: H = −H0
+		g = e1.t - H0/tr.rate
+	} else {
+		g = e0.t + H0/tr.rate
+	}
+	if !(g > e0.t && g < e1.t) {
+		return mid, 0
+	}
+	// d(sin h)/dt = −cos φ cos δ sin H · dH/dt, H = ∓H0
+	slope = den * math.Sin(H0) * tr.rate
+	if !rising {
+		slope = -slope
 	}
 	return g, slope
 }

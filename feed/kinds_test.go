@@ -13,15 +13,8 @@ import (
 func TestEveryKindComputed(t *testing.T) {
 	s := site(t, "mid", 48.2, 16.4, "Europe/Vienna")
 	sk := sky(t, "2027-01-01", "2027-12-31")
-	for _, name := range config.KindNames {
-		example := name
-		switch name {
-		case config.KindSunAltitude:
-			example = "sun-altitude:10"
-		case config.KindPhotoperiod:
-			example = "photoperiod:12h"
-		}
-		t.Run(name, func(t *testing.T) {
+	for _, example := range config.KindExamples {
+		t.Run(example, func(t *testing.T) {
 			k := mustKinds(t, example)
 			entries, err := sk.Entries(s, "f", []config.KindSpec{{Kind: k[0]}}, date("2027-01-01"), date("2027-12-31"))
 			if err != nil {

@@ -291,3 +291,24 @@ func Publish(ctx context.Context, srcs []Source, opts RenderOptions, w *Writer) 
 	}
 	return st, nil
 }
+
+// MergeIndex writes feeds.json and index.html into w.Dir from the shard
+// manifests found there, when all opts.Shard.Count of them are present for
+// this configuration (srcs lists every feed, of every shard); otherwise it
+// reports IndexPending and writes nothing. Publish does this itself when its
+// shard finishes on a directory the shards share; MergeIndex is for a final
+// step where they do not (each worker uploads to object storage, and one
+// job gathers the manifests and writes the index).
+func MergeIndex(ctx context.Context, srcs []Source, opts RenderOptions, w *Writer) (string, error) {
+	if !opts.Shard.Sharded() {
+		return "", fmt.Errorf("publish: merging the index needs the shard count (opts.Shard.Count > 1)")
+	}
+	if _, err := selectSources(srcs, Shard{}); err != nil {
+		return "", err
+	}
+	if _, err := w.prepare(); err != nil {
+		return "", err
+	}
+	status, _, err := w.mergeShards(ctx, opts.Shard.Count, idsDigest(srcs), &opts)
+	return status, err
+}

@@ -127,12 +127,34 @@ func TestShardedPublishMergesIndex(t *testing.T) {
 		t.Errorf("the shards published %d feeds in all, want 3", feeds)
 	}
 
+	// A separate merge step over the gathered manifests (no shared volume)
+	// writes the same index.
+	gathered := t.TempDir()
+	for i := range n {
+		name := ManifestName(Shard{i, n})
+		if err := os.WriteFile(filepath.Join(gathered, name), got[name], 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	opts := testOptions()
+	opts.Shard = Shard{Count: n}
+	status, err := MergeIndex(context.Background(), Calendars(testCalendars(t, "")...), opts, &Writer{Dir: gathered})
+	if err != nil || status != IndexWritten {
+		t.Fatalf("MergeIndex: %q, %v", status, err)
+	}
+	merged := snapshot(t, gathered)
+	for _, name := range []string{FeedsJSONName, IndexName} {
+		if !bytes.Equal(merged[name], want[name]) {
+			t.Errorf("MergeIndex wrote a different %s", name)
+		}
+	}
+
 	// Manifests of another configuration (a feed added) are not merged.
 	srcs := Calendars(testCalendars(t, "")...)
 	extra := *testCalendars(t, "")[0]
 	extra.ID = "orchard-dawn"
 	srcs = append(srcs, Calendars(&extra)...)
-	opts := testOptions()
+	opts = testOptions()
 	opts.Shard = Shard{Index: 0, Count: n}
 	st, err := Publish(context.Background(), srcs, opts, &Writer{Dir: dir})
 	if err != nil {

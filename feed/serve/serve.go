@@ -6,6 +6,23 @@
 //
 // The package builds nothing itself: the command line injects the full
 // rebuild (Options.Build) and the ad-hoc builder (Options.Adhoc).
+//
+// Routes (GET and HEAD only; anything else is 405 with an Allow header):
+//
+//	/, /index.html     the bundle's index.html
+//	/feeds/<id>.ics    a feed; also at /<id>.ics, the published directory's layout
+//	/feeds.json        the list of feeds (the bundle's, or one made from Bundle.Feeds)
+//	/at.ics?…          an ad-hoc feed for any place (see AdhocQuery)
+//	/healthz           JSON; 200 once feeds are served, 503 before the first good build
+//	/metrics           Prometheus text format
+//
+// Files are served with a strong ETag (the quoted SHA-256 of the bytes; the
+// gzip form has its own, ending in -gz"), Last-Modified, Cache-Control
+// public with max-age equal to the refresh interval (1 minute to 24 hours),
+// Vary: Accept-Encoding, and Access-Control-Allow-Origin: * on .ics and
+// .json. Conditional requests (If-None-Match, If-Modified-Since), HEAD and
+// Range are answered by http.ServeContent. Gzip bytes are computed once per
+// file when a bundle is swapped in, never per request.
 package serve
 
 import (

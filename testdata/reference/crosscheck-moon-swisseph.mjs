@@ -53,6 +53,14 @@ function monthFor(i) {
   return [1950 + ((i * 37) % 131), (i * 5) % 12];
 }
 
+// High-latitude sites (66°–85°), one month each in 2020–2028, for the
+// presence and absence of events where the Moon stays up or down for days.
+const polarSites = [[70, 0], [75, 20], [80, -40], [-72, 100], [-78, 166], [85, 10], [68, -133],
+  [-69, 77], [72, -150], [78, 15], [66, 25], [-66, -60]];
+function polarMonthFor(i) {
+  return [2020 + (i % 9), (i * 5) % 12];
+}
+
 const jdUnix = 2440587.5;
 const isoFromJD = (jd) => new Date(Math.round((jd - jdUnix) * 86400000)).toISOString();
 const jdFromDate = (d) => d.getTime() / 86400000 + jdUnix;
@@ -109,8 +117,8 @@ for (const year of [1900, 1927, 1950, 1969, 1986, 2000, 2013, 2024, 2025, 2026, 
 }
 
 // Moonrise, moonset, upper transit: every event in one month per site.
-sites.forEach(([lat, lon], i) => {
-  const [year, month] = monthFor(i);
+const siteMonths = sites.map((s, i) => [s, monthFor(i)]).concat(polarSites.map((s, i) => [s, polarMonthFor(i)]));
+siteMonths.forEach(([[lat, lon], [year, month]]) => {
   const start = new Date(Date.UTC(year, month, 1));
   const end = new Date(Date.UTC(year, month + 1, 1));
   const jdStart = jdFromDate(start), jdEnd = jdFromDate(end);

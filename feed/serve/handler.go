@@ -126,7 +126,7 @@ func (s *Server) finish(rec *recorder, r *http.Request, route string, start time
 	if s.access.Enabled(ctx, slog.LevelInfo) {
 		s.access.LogAttrs(ctx, slog.LevelInfo, "request",
 			slog.String("method", r.Method),
-			slog.String("path", r.URL.Path),
+			slog.String("path", truncate(r.URL.Path, 256)),
 			slog.String("query", truncate(r.URL.RawQuery, 256)),
 			slog.String("route", route),
 			slog.Int("status", rec.status),

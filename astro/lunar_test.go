@@ -142,3 +142,39 @@ func sortCrossings(cs []Crossing) {
 		}
 	}
 }
+
+// TestMoonRiseSetScan: the crossing search (between extrema of the
+// altitude) must find exactly the sign changes of the upper limb's altitude
+// above its rise/set threshold that a plain scan every 20 s finds, over half
+// a year at latitudes from 85°S to 85°N; a scan interval holding two
+// crossings (a grazing culmination shorter than 20 s) would show up as a
+// difference of two and is reported with its place.
+func TestMoonRiseSetScan(t *testing.T) {
+	from := time.Date(2030, 3, 1, 0, 0, 0, 0, time.UTC)
+	to := from.AddDate(0, 6, 0)
+	me, err := NewMoonEphemeris(from, to)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, lat := range []float64{-85, -72, -61, -40, 0, 35, 58, 64, 69, 77, 85} {
+		o := Observer{Latitude: lat, Longitude: 47 - lat}
+		cs, err := me.MoonRiseSet(o, from, to)
+		if err != nil {
+			t.Fatal(err)
+		}
+		lg := me.newLimbG(o, newSite(o))
+		a, b := unixSeconds(from), unixSeconds(to)
+		n := 0
+		prev := lg.g(a)
+		for x := a + 20; x < b; x += 20 {
+			v := lg.g(x)
+			if (v > 0) != (prev > 0) {
+				n++
+			}
+			prev = v
+		}
+		if n != len(cs) {
+			t.Errorf("lat %v: the scan finds %d crossings, the search %d", lat, n, len(cs))
+		}
+	}
+}

@@ -157,9 +157,10 @@ type flightGroup struct {
 }
 
 type flight struct {
-	done chan struct{}
-	a    *asset
-	err  error
+	done    chan struct{}
+	a       *asset
+	err     error
+	waiters int // callers that asked for this key (guarded by flightGroup.mu)
 }
 
 // do runs fn once per key at a time; a caller whose ctx ends stops waiting
@@ -183,6 +184,7 @@ func (g *flightGroup) do(ctx context.Context, key string, fn func() (*asset, err
 			f.a, f.err = fn()
 		}()
 	}
+	f.waiters++
 	g.mu.Unlock()
 	select {
 	case <-f.done:

@@ -69,3 +69,33 @@ func TestPhaseKindString(t *testing.T) {
 		t.Errorf("NightState names")
 	}
 }
+
+// TestMoonRangeEnds: the first and last month of the supported range work
+// for every Moon function (the searches look a few days beyond their span).
+func TestMoonRangeEnds(t *testing.T) {
+	for _, span := range [][2]time.Time{
+		{MinTime, MinTime.AddDate(0, 1, 0)},
+		{MaxTime.AddDate(0, -1, 0), MaxTime},
+	} {
+		ph, err := MoonPhases(span[0], span[1])
+		if err != nil || len(ph) < 3 {
+			t.Errorf("MoonPhases %v: %d phases, %v", span, len(ph), err)
+		}
+		aps, err := LunarApsides(span[0], span[1])
+		if err != nil || len(aps) < 1 {
+			t.Errorf("LunarApsides %v: %d, %v", span, len(aps), err)
+		}
+		me, err := NewMoonEphemeris(span[0], span[1].Add(-time.Second))
+		if err != nil {
+			t.Fatalf("NewMoonEphemeris %v: %v", span, err)
+		}
+		days, err := me.MoonDays(Observer{Latitude: 40}, time.UTC, span[0], span[1].Add(-time.Second))
+		if err != nil || len(days) < 28 {
+			t.Errorf("MoonDays %v: %d days, %v", span, len(days), err)
+		}
+		nights, err := me.DarkWindows(Observer{Latitude: 40}, time.UTC, span[0], span[1].AddDate(0, 0, -2), 0.2)
+		if err != nil || len(nights) < 27 {
+			t.Errorf("DarkWindows %v: %d nights, %v", span, len(nights), err)
+		}
+	}
+}

@@ -27,7 +27,7 @@ import (
 //     value faded in smoothly over 1968–1973; after the table, ΔT stays at the
 //     last observed value (69.18 s: the Earth has not slowed since 2016) and
 //     joins the Espenak–Meeus long-term expression smoothly by 2050, with
-//     weight x⁵(6−5x), x = (year − 2023.33)/26.67 (0.06 at 2035, so ΔT ≈ 69.9 s
+//     weight x⁵(6−5x), x = (year − 2023.33)/26.67 (0.06 at 2035, so ΔT ≈ 70.1 s
 //     then; the 2005–2050 polynomial alone would give 75.7 s in 2027, already
 //     6 s more than observed).
 //

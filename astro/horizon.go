@@ -12,11 +12,11 @@ package astro
 //		// (radians) and distance from the Earth's centre (Earth radii,
 //		// earthRadiusKm) at epoch e
 //	})
-//	st := newSite(o)                        // observer, validated by o.validate()
-//	ext := tr.extrema(st, a, b)             // culminations covering [a, b] (Unix s)
-//	xs := tr.crossings(st, ext, h0, a, b)   // crossings of geometric altitude h0 (rad) in [a, b)
-//	ts := tr.transits(st, a, b)             // upper meridian transits in [a, b)
-//	sh := tr.sinAltitude(st, sec)           // sine of the topocentric altitude
+//	st := newSite(o)                                   // observer, checked first by o.Validate()
+//	ext := tr.extrema(st, a, b)                        // culminations over [a − 1 day, b + 1 day] (Unix s)
+//	xs := tr.crossings(st, ext, math.Sin(h0), a, b, nil) // crossings of geometric altitude h0 (rad) in [a, b)
+//	ts := tr.transits(st, a, b)                        // upper meridian transits in [a, b)
+//	sh := tr.sinAltitude(st, sec)                      // sine of the topocentric altitude
 //
 // A track samples the body once per step seconds (the Sun: one day) at UTC
 // instants start + k·step and interpolates with 4-point (cubic) Lagrange
@@ -249,9 +249,10 @@ func (tr *track) passageTol(st *site, from, target, tol float64) float64 {
 	return t
 }
 
-// extrema returns the culminations of the body from the last one at or
-// before a − 1 day... up to the first one after b + 1 day (Unix s), in order,
-// alternating upper and lower.
+// extrema returns the culminations of the body within [a − 1 day,
+// b + 1 day] (Unix s; clipped to the track's coverage), in order,
+// alternating upper and lower, so that every instant of [a, b] lies between
+// two of them.
 func (tr *track) extrema(st *site, a, b float64) []extremum {
 	lo, hi := tr.coverage()
 	a = max(a-secondsPerDay, lo)

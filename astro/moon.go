@@ -57,6 +57,12 @@ type moonState struct {
 // at the top of this file.
 func moonApparent(jde float64) moonState {
 	lon, lat, dist := elpMoon(jde - moonMeanLightTime)
+	return moonApparentFrom(jde, lon, lat, dist)
+}
+
+// moonApparentFrom completes moonApparent from the series' geometric
+// position at jde − moonMeanLightTime.
+func moonApparentFrom(jde, lon, lat, dist float64) moonState {
 	tau := dist / speedOfLightKmS / secondsPerDay
 	lon -= (tau - moonMeanLightTime) * moonMeanMotion
 	dpsi, deps := nutationRad(jde)

@@ -414,3 +414,43 @@ func TestEphemerisLeapSecond(t *testing.T) {
 		}
 	}
 }
+
+// TestEphemerisConcurrent checks that one Ephemeris serves goroutines at
+// once with the same answers as serially (run with -race to check the
+// absence of shared mutable state).
+func TestEphemerisConcurrent(t *testing.T) {
+	e := propEphemeris(t)
+	from := time.Date(2027, 3, 1, 0, 0, 0, 0, time.UTC)
+	to := from.AddDate(0, 1, 0)
+	sites := []Observer{{Latitude: 48.2, Longitude: 16.4}, {Latitude: -33.9, Longitude: 151.2}, {Latitude: 69.6, Longitude: 18.9}, {Latitude: 0, Longitude: -179.9}}
+	want := make([][]Crossing, len(sites))
+	for i, o := range sites {
+		var err error
+		if want[i], err = e.SunCrossings(o, CivilTwilight, from, to); err != nil {
+			t.Fatal(err)
+		}
+	}
+	var wg sync.WaitGroup
+	errs := make(chan string, 64)
+	for g := range 16 {
+		wg.Go(func() {
+			i := g % len(sites)
+			got, err := e.SunCrossings(sites[i], CivilTwilight, from, to)
+			if err != nil || len(got) != len(want[i]) {
+				errs <- fmt.Sprintf("goroutine %d: %d crossings, want %d (%v)", g, len(got), len(want[i]), err)
+				return
+			}
+			for k := range got {
+				if got[k] != want[i][k] {
+					errs <- fmt.Sprintf("goroutine %d: crossing %d differs", g, k)
+					return
+				}
+			}
+		})
+	}
+	wg.Wait()
+	close(errs)
+	for m := range errs {
+		t.Error(m)
+	}
+}

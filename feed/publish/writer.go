@@ -11,6 +11,7 @@ import (
 	"path/filepath"
 	"sort"
 	"strings"
+	"sync"
 	"time"
 )
 
@@ -258,12 +259,9 @@ func sameRegularFile(path string, data []byte) (bool, error) {
 	if data == nil || fi.Size() != int64(len(data)) {
 		return false, nil
 	}
-	old, err := os.ReadFile(path)
-	if err != nil {
-		return false, fmt.Errorf("publish: %w", err)
-	}
-	if !bytes.Equal(old, data) {
-		return false, nil
+	equal, err := fileEquals(path, data)
+	if err != nil || !equal {
+		return false, err
 	}
 	// Same bytes; make sure a web server can still read them.
 	if fi.Mode().Perm() != FileMode {
@@ -272,6 +270,38 @@ func sameRegularFile(path string, data []byte) (bool, error) {
 		}
 	}
 	return true, nil
+}
+
+// compareChunk is the read size of fileEquals: a changed feed (the usual
+// case: the window moved by a day) differs within its first chunk, so it
+// costs one small read instead of reading the whole old file.
+const compareChunk = 64 << 10
+
+var chunkPool = sync.Pool{New: func() any { b := make([]byte, compareChunk); return &b }}
+
+// fileEquals reports whether the file at path holds exactly data.
+func fileEquals(path string, data []byte) (bool, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return false, fmt.Errorf("publish: %w", err)
+	}
+	defer f.Close()
+	bp := chunkPool.Get().(*[]byte)
+	defer chunkPool.Put(bp)
+	buf := *bp
+	for off := 0; ; {
+		n, err := io.ReadFull(f, buf)
+		if n > len(data)-off || !bytes.Equal(buf[:n], data[off:off+n]) {
+			return false, nil
+		}
+		off += n
+		switch {
+		case err == io.EOF || err == io.ErrUnexpectedEOF:
+			return off == len(data), nil
+		case err != nil:
+			return false, fmt.Errorf("publish: %w", err)
+		}
+	}
 }
 
 func describeMode(m fs.FileMode) string {

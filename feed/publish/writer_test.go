@@ -369,3 +369,37 @@ func TestStaleTemporaryFilesRemoved(t *testing.T) {
 		t.Errorf("left %v, want %v", got, want)
 	}
 }
+
+func TestFileEquals(t *testing.T) {
+	dir := t.TempDir()
+	big := bytes.Repeat([]byte("0123456789abcdef"), compareChunk/16*2) // exactly two chunks
+	tests := []struct {
+		name      string
+		disk, mem []byte
+		want      bool
+	}{
+		{"equal, two whole chunks", big, big, true},
+		{"equal, short", []byte("BEGIN:VCALENDAR\r\n"), []byte("BEGIN:VCALENDAR\r\n"), true},
+		{"empty", []byte{}, []byte{}, true},
+		{"last byte differs", big, append(append([]byte(nil), big[:len(big)-1]...), 'X'), false},
+		{"first byte of the second chunk differs", big, func() []byte {
+			b := append([]byte(nil), big...)
+			b[compareChunk] = 'X'
+			return b
+		}(), false},
+		{"file longer", append(append([]byte(nil), big...), 'Z'), big, false},
+		{"file shorter", big[:len(big)-1], big, false},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			p := filepath.Join(dir, "f")
+			if err := os.WriteFile(p, tc.disk, 0o644); err != nil {
+				t.Fatal(err)
+			}
+			got, err := fileEquals(p, tc.mem)
+			if err != nil || got != tc.want {
+				t.Errorf("fileEquals = %v, %v; want %v", got, err, tc.want)
+			}
+		})
+	}
+}

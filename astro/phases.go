@@ -11,7 +11,8 @@ import (
 // quarter), 180° (full moon) or 270° (last quarter).
 //
 // Method: the mean phases of Meeus, Astronomical Algorithms 2nd ed., ch. 49
-// (eq. 49.1, within about 14 hours of the true instants) are the starting
+// (eq. 49.1, within about 14 hours of the true instants) with the largest of
+// the chapter's periodic corrections (within a few minutes) are the starting
 // values; each is then solved on the true apparent positions — the Moon of
 // moon.go (ELP/MPP02 with light time and nutation) and the Sun of sun.go
 // (VSOP87D, FK5, nutation, aberration) — by the secant method until the step
@@ -81,8 +82,43 @@ func moonSunElongation(jde float64) float64 {
 	return norm2Pi(lon + dpsi - sunApparentLongitude(jde))
 }
 
-// truePhaseJDE solves λ☾ − λ☉ = target (radians) starting from the mean
-// phase at jde0, by the secant method; the result is in TT.
+// approxPhaseJDE returns the mean phase k (JDE, eq. 49.1) corrected by the
+// largest periodic terms of Meeus ch. 49 (those of 0.0005 day or more; the
+// rest change it by a few minutes at most): a starting value for
+// truePhaseJDE.
+func approxPhaseJDE(k float64) float64 {
+	T := k / 1236.85
+	r := deg2rad
+	E := 1 - T*(0.002516+0.0000074*T)
+	M := (2.5534 + 29.10535670*k - T*T*(0.0000014+0.00000011*T)) * r
+	Mp := (201.5643 + 385.81693528*k + T*T*(0.0107582+T*(0.00001238-0.000000058*T))) * r
+	F := (160.7108 + 390.67050284*k - T*T*(0.0016118+T*(0.00000227-0.000000011*T))) * r
+	var c float64
+	switch q := math.Round((k - math.Floor(k)) * 4); q {
+	case 0, 2: // new moon, full moon (eqs. of ch. 49, first table)
+		a := [2][7]float64{
+			{-0.40720, 0.17241, 0.01608, 0.01039, 0.00739, -0.00514, 0.00208},
+			{-0.40614, 0.17302, 0.01614, 0.01043, 0.00734, -0.00515, 0.00209},
+		}[int(q)/2]
+		c = a[0]*math.Sin(Mp) + a[1]*E*math.Sin(M) + a[2]*math.Sin(2*Mp) + a[3]*math.Sin(2*F) +
+			a[4]*E*math.Sin(Mp-M) + a[5]*E*math.Sin(Mp+M) + a[6]*E*E*math.Sin(2*M) -
+			0.00111*math.Sin(Mp-2*F) - 0.00057*math.Sin(Mp+2*F) + 0.00056*E*math.Sin(2*Mp+M)
+	default: // quarters
+		c = -0.62801*math.Sin(Mp) + 0.17172*E*math.Sin(M) - 0.01183*E*math.Sin(Mp+M) +
+			0.00862*math.Sin(2*Mp) + 0.00804*math.Sin(2*F) + 0.00454*E*math.Sin(Mp-M) +
+			0.00204*E*E*math.Sin(2*M) - 0.00180*math.Sin(Mp-2*F) - 0.00070*math.Sin(Mp+2*F)
+		W := 0.00306 - 0.00038*E*math.Cos(M) + 0.00026*math.Cos(Mp)
+		if q == 1 {
+			c += W
+		} else {
+			c -= W
+		}
+	}
+	return meanPhaseJDE(k) + c
+}
+
+// truePhaseJDE solves λ☾ − λ☉ = target (radians) starting from jde0, by the
+// secant method; the result is in TT.
 func truePhaseJDE(jde0, target float64) float64 {
 	f := func(jde float64) float64 {
 		return math.Remainder(moonSunElongation(jde)-target, 2*math.Pi)
@@ -92,15 +128,15 @@ func truePhaseJDE(jde0, target float64) float64 {
 	t0, f0 := jde0, f(jde0)
 	t1 := t0 - f0/rate
 	for range 12 {
+		if math.Abs(t1-t0) < 1e-3/secondsPerDay {
+			break
+		}
 		f1 := f(t1)
 		if f1 == f0 {
 			break
 		}
 		t2 := t1 - f1*(t1-t0)/(f1-f0)
 		t0, f0, t1 = t1, f1, t2
-		if math.Abs(t1-t0) < 1e-3/secondsPerDay {
-			break
-		}
 	}
 	return t1
 }
@@ -135,7 +171,7 @@ func MoonPhases(from, to time.Time) ([]Phase, error) {
 		}
 		q := int(math.Round((k - math.Floor(k)) * 4))
 		kind := PhaseKind(q % 4)
-		jde := truePhaseJDE(mean, float64(kind)*math.Pi/2)
+		jde := truePhaseJDE(approxPhaseJDE(k), float64(kind)*math.Pi/2)
 		sec := ttToUnix(jde)
 		if sec < fromSec || sec >= toSec {
 			continue

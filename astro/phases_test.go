@@ -73,6 +73,21 @@ func TestMoonPhasesMeeus49(t *testing.T) {
 	}
 }
 
+// TestApproxPhaseMeeus49: the starting values (mean phase plus the largest
+// corrections of ch. 49) are within 5 minutes of the chapter's complete
+// result in Meeus, Astronomical Algorithms 2nd ed., Examples 49.a (new moon,
+// k = −283: JDE 2443192.65118) and 49.b (last quarter, k = 544.75: JDE
+// 2467636.49186).
+func TestApproxPhaseMeeus49(t *testing.T) {
+	for _, c := range []struct{ k, want float64 }{{-283, 2443192.65118}, {544.75, 2467636.49186}} {
+		got := approxPhaseJDE(c.k)
+		t.Logf("k=%v: %.5f, complete method %.5f (%.0f s)", c.k, got, c.want, (got-c.want)*secondsPerDay)
+		if math.Abs(got-c.want)*secondsPerDay > 300 {
+			t.Errorf("k=%v: starting value %.5f, want within 5 min of %.5f (Meeus ch. 49)", c.k, got, c.want)
+		}
+	}
+}
+
 // TestMeanPhaseMeeus49: Meeus, Astronomical Algorithms 2nd ed., eq. 49.1 and
 // Examples 49.a (k = −283, mean JDE 2443192.94102) and 49.b (k = 544.75,
 // mean JDE 2467636.88597).

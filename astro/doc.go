@@ -24,11 +24,12 @@
 //	ephemeris.go, horizon.go  shared track, threshold crossings, transits  Meeus ch. 15 (hour-angle estimate), ch. 11 (observer, WGS 84),
 //	                                                                       USNO rise/set and twilight definitions
 //	elp.go, zz_elp_moon.go    the Moon's geocentric position               ELP/MPP02 (DE405 fit), Chapront & Francou, A&A 404, 735 (2003)
-//	moon.go                   apparent Moon (light time, nutation),        Meeus ch. 47 (method), 48 (illuminated fraction, bright limb)
-//	                          illumination
+//	moon.go                   apparent Moon (light time, nutation),        Meeus ch. 47 (method), 40 (parallax), 48 (illuminated fraction,
+//	                          topocentric Moon, illumination               bright limb)
 //	phases.go                 new, first quarter, full, last quarter       Meeus ch. 49 (starting values), iterated on moon.go and sun.go
 //	moonrise.go               moonrise, moonset, transit                   USNO definitions, the search of horizon.go
 //	darksky.go                dark-sky windows                             USNO astronomical twilight; moonrise.go
+//	lunar_apsides.go          the Moon's perigee and apogee                Meeus ch. 50 (eq. 50.1 start), extrema of the ELP/MPP02 distance
 //
 // # Conventions
 //
@@ -68,6 +69,13 @@
 //   - sunrise, sunset, twilight, other thresholds, solar noon, 1973–2023:
 //     within 0.05 s of ERFA up to 66° of latitude, every event present
 //     from 89° S to 89° N; within the minute rounding of USNO's tables.
+//   - apparent Moon 1800–2199: within 0.13″ of the Swiss Ephemeris with its
+//     DE431-based files (0.4 km in distance);
+//   - Moon phases 1900–2099: within 0.22 s (TT) of the same; within the
+//     minute rounding of USNO's table 1900–2019;
+//   - moonrise, moonset, lunar transit: within 0.54 s of the same from 60° S
+//     to 60° N where the ΔT models agree (to 2023), the same events at
+//     66°–85°; within the minute rounding of USNO's tables.
 //
 // # Incomplete
 //
@@ -88,4 +96,8 @@
 //     which depend on UT1 only through the Earth's rotation).
 //   - The Julian calendar (dates before 1582) is not supported: the
 //     supported span starts in 1800.
+//   - The Moon is ELP/MPP02 in its published 4,862-term reduced form,
+//     truncated to 2,096 terms (within 0.08″ of it over 1800–2200); the
+//     illuminated fraction is geocentric; lunar eclipses and librations are
+//     not computed.
 package astro

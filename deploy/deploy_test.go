@@ -5,9 +5,16 @@ package deploy
 
 import (
 	"bytes"
+	"crypto/ecdsa"
+	"crypto/elliptic"
+	"crypto/rand"
+	"crypto/x509"
+	"crypto/x509/pkix"
+	"encoding/pem"
 	"errors"
 	"fmt"
 	"io"
+	"math/big"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -15,6 +22,7 @@ import (
 	"strconv"
 	"strings"
 	"testing"
+	"time"
 
 	"go.yaml.in/yaml/v3"
 
@@ -309,4 +317,87 @@ func TestDockerfile(t *testing.T) {
 	if !bytes.Contains(main, []byte(`_ "time/tzdata"`)) {
 		t.Error("cmd/heliocal does not import time/tzdata; the distroless image has no zone files")
 	}
+}
+
+// TestNginx: nginx -t accepts the server block inside a minimal main
+// configuration, when nginx is installed (certificate paths pointed at a
+// throw-away self-signed pair, everything else as shipped).
+func TestNginx(t *testing.T) {
+	nginx, err := exec.LookPath("nginx")
+	if err != nil {
+		t.Skip("nginx not installed")
+	}
+	dir := t.TempDir()
+	cert, key := selfSigned(t, dir)
+	site, err := os.ReadFile("nginx/heliocal.conf")
+	if err != nil {
+		t.Fatal(err)
+	}
+	site = bytes.ReplaceAll(site, []byte("/etc/ssl/certs/sky.example.org.pem"), []byte(cert))
+	site = bytes.ReplaceAll(site, []byte("/etc/ssl/private/sky.example.org.key"), []byte(key))
+	sitePath := filepath.Join(dir, "site.conf")
+	if err := os.WriteFile(sitePath, site, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	mime := "/etc/nginx/mime.types"
+	if _, err := os.Stat(mime); err != nil {
+		t.Skip("no /etc/nginx/mime.types")
+	}
+	main := fmt.Sprintf(`pid %[1]s/nginx.pid;
+error_log %[1]s/error.log;
+events {}
+http {
+    include %[2]s;
+    access_log off;
+    client_body_temp_path %[1]s;
+    proxy_temp_path %[1]s;
+    fastcgi_temp_path %[1]s;
+    uwsgi_temp_path %[1]s;
+    scgi_temp_path %[1]s;
+    include %[3]s;
+}
+`, dir, mime, sitePath)
+	mainPath := filepath.Join(dir, "nginx.conf")
+	if err := os.WriteFile(mainPath, []byte(main), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	out, err := exec.Command(nginx, "-t", "-q", "-p", dir, "-c", mainPath).CombinedOutput()
+	if err != nil {
+		t.Errorf("nginx -t: %v\n%s", err, out)
+	}
+	if bytes.Contains(out, []byte("[warn]")) {
+		t.Errorf("nginx -t warns:\n%s", out)
+	}
+}
+
+// selfSigned writes a throw-away certificate and key for nginx -t.
+func selfSigned(t *testing.T, dir string) (certPath, keyPath string) {
+	t.Helper()
+	priv, err := ecdsa.GenerateKey(elliptic.P256(), rand.Reader)
+	if err != nil {
+		t.Fatal(err)
+	}
+	tmpl := &x509.Certificate{
+		SerialNumber: big.NewInt(1),
+		Subject:      pkix.Name{CommonName: "sky.example.org"},
+		DNSNames:     []string{"sky.example.org"},
+		NotBefore:    time.Now().Add(-time.Hour),
+		NotAfter:     time.Now().Add(time.Hour),
+	}
+	der, err := x509.CreateCertificate(rand.Reader, tmpl, tmpl, &priv.PublicKey, priv)
+	if err != nil {
+		t.Fatal(err)
+	}
+	keyDER, err := x509.MarshalECPrivateKey(priv)
+	if err != nil {
+		t.Fatal(err)
+	}
+	certPath, keyPath = filepath.Join(dir, "cert.pem"), filepath.Join(dir, "key.pem")
+	if err := os.WriteFile(certPath, pem.EncodeToMemory(&pem.Block{Type: "CERTIFICATE", Bytes: der}), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(keyPath, pem.EncodeToMemory(&pem.Block{Type: "EC PRIVATE KEY", Bytes: keyDER}), 0o600); err != nil {
+		t.Fatal(err)
+	}
+	return certPath, keyPath
 }

@@ -252,3 +252,28 @@ func (e *MoonEphemeris) DarkWindows(o Observer, loc *time.Location, first, last 
 	}
 	return slices.Clip(nights), nil
 }
+
+// Illumination returns the Moon's illumination at t as MoonIllumination
+// does, but from the interpolated Moon and Sun tracks: about 20 times
+// cheaper, for describing many events (the fraction agrees to 1e-6, the
+// angles to 0.001°; TestEphemerisIllumination). t must lie within
+// Coverage().
+func (e *MoonEphemeris) Illumination(t time.Time) (Illumination, error) {
+	if err := e.checkSpan(t, t); err != nil {
+		return Illumination{}, err
+	}
+	sec := unixSeconds(t)
+	ghaM, decM, distM := e.moon.at(sec)
+	ghaS, decS, distS := e.sun.sun.at(sec)
+	ep := epochOf(sec)
+	dpsi, deps := nutationRad(ep.JDE)
+	eps := meanObliquityRad(ep.JDE) + deps
+	gast := meanSiderealRaw(ep.JDUT1)*deg2rad + dpsi*math.Cos(eps)
+	raM, raS := norm2Pi(gast-ghaM), norm2Pi(gast-ghaS)
+	se, ce := math.Sincos(eps)
+	lon := func(ra, dec float64) float64 {
+		sa, ca := math.Sincos(ra)
+		return math.Atan2(sa*ce+math.Tan(dec)*se, ca)
+	}
+	return illumination(raM, decM, distM*earthRadiusKm, raS, decS, distS*earthRadiusKm, lon(raM, decM)-lon(raS, decS)), nil
+}

@@ -193,3 +193,38 @@ func TestDarkWindowsBadInput(t *testing.T) {
 		t.Errorf("outside coverage: %v", err)
 	}
 }
+
+// TestEphemerisIllumination: the interpolated illumination equals the
+// directly computed one (MoonIllumination) at 500 instants of a year:
+// fraction within 1e-6, phase angle, elongation and bright limb within
+// 0.001°, the same waxing flag.
+func TestEphemerisIllumination(t *testing.T) {
+	from := time.Date(2028, 1, 1, 0, 0, 0, 0, time.UTC)
+	me, err := NewMoonEphemeris(from, from.AddDate(1, 0, 0))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var dk, dAng float64
+	for i := range 500 {
+		when := from.Add(time.Duration(i) * 17 * time.Hour).Add(time.Duration(i%11) * time.Minute)
+		a, err := me.Illumination(when)
+		if err != nil {
+			t.Fatal(err)
+		}
+		b, err := MoonIllumination(when)
+		if err != nil {
+			t.Fatal(err)
+		}
+		dk = math.Max(dk, math.Abs(a.Fraction-b.Fraction))
+		for _, d := range []float64{a.PhaseAngle - b.PhaseAngle, math.Remainder(a.Elongation-b.Elongation, 360), math.Remainder(a.BrightLimb-b.BrightLimb, 360)} {
+			dAng = math.Max(dAng, math.Abs(d))
+		}
+		if a.Waxing != b.Waxing {
+			t.Errorf("%v: waxing %v, direct %v (elongation %.4f°)", when, a.Waxing, b.Waxing, b.Elongation)
+		}
+	}
+	t.Logf("interpolated illumination: fraction within %.1e, angles within %.1e°", dk, dAng)
+	if dk > 1e-6 || dAng > 1e-3 {
+		t.Errorf("interpolated illumination differs: fraction %.1e, angles %.1e°", dk, dAng)
+	}
+}

@@ -78,3 +78,33 @@ func BenchmarkMoon(b *testing.B) {
 		t = t.Add(time.Hour)
 	}
 }
+
+// BenchmarkMoonIllumination: direct (MoonIllumination) against interpolated
+// (MoonEphemeris.Illumination) illumination of one instant.
+func BenchmarkMoonIllumination(b *testing.B) {
+	from := time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC)
+	me, err := NewMoonEphemeris(from, from.AddDate(0, 1, 0))
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.Run("direct", func(b *testing.B) {
+		b.ReportAllocs()
+		t := from
+		for b.Loop() {
+			if _, err := MoonIllumination(t); err != nil {
+				b.Fatal(err)
+			}
+			t = t.Add(time.Minute)
+		}
+	})
+	b.Run("ephemeris", func(b *testing.B) {
+		b.ReportAllocs()
+		t := from
+		for b.Loop() {
+			if _, err := me.Illumination(t); err != nil {
+				b.Fatal(err)
+			}
+			t = t.Add(time.Minute)
+		}
+	})
+}

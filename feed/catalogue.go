@@ -146,7 +146,10 @@ func PlaceOf(s *config.Site) Place {
 // without an event, and daily summaries. Entries are sorted by Start, then UID.
 func (sky *Sky) Entries(s *config.Site, feedID string, specs []config.KindSpec, first, last time.Time) ([]Entry, error) {
 	col := &collector{sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
-	w := entryWriter{feedID: feedID, site: s, seen: map[string]int{}}
+	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: map[string]int{}}
+	if err := col.prepare(altitudes(col.p.Observer, specs)...); err != nil {
+		return nil, err
+	}
 	for _, spec := range specs {
 		if spec.Kind.Name == "daily-summary" {
 			if err := summaries(col, &w, spec); err != nil {
@@ -179,7 +182,7 @@ func (sky *Sky) Entries(s *config.Site, feedID string, specs []config.KindSpec, 
 // summaries adds one all-day entry per date: sunrise, sunset, day length and
 // civil twilight.
 func summaries(col *collector, w *entryWriter, spec config.KindSpec) error {
-	sub := &collector{sky: col.sky, p: col.p, first: col.first, last: col.last}
+	sub := &collector{sky: col.sky, p: col.p, first: col.first, last: col.last, thresholds: col.thresholds, lengths: col.lengths}
 	for _, name := range []string{"sunrise", "sunset", "civil-dawn", "civil-dusk"} {
 		if err := sub.add(config.Kind{Name: name}); err != nil {
 			return err
@@ -207,7 +210,7 @@ func summaries(col *collector, w *entryWriter, spec config.KindSpec) error {
 // entryWriter turns events and notes into entries with stable UIDs.
 type entryWriter struct {
 	feedID string
-	site   *config.Site
+	site   *siteInfo
 	seen   map[string]int
 	out    []Entry
 }

@@ -178,7 +178,7 @@ func waxing(e Event) string {
 }
 
 // describeMoon gives the title and description of a Moon event.
-func describeMoon(s *config.Site, e Event) (string, string) {
+func describeMoon(s *siteInfo, e Event) (string, string) {
 	loc := s.TimeZone.Location
 	at := localClock(e.Start, loc)
 	title := plainNames[e.Kind.Name]
@@ -195,28 +195,28 @@ func describeMoon(s *config.Site, e Event) (string, string) {
 	case "moonrise", "moonset":
 		title = fmt.Sprintf("%s (%s, %s lit)", title, waxing(e), percent(e.Illuminated))
 		fmt.Fprintf(&b, "%s at %s, %s: the Moon is %s, %s lit.\nUpper limb of the Moon on the horizon with standard refraction, seen from the site.",
-			plainNames[e.Kind.Name], at, where(s), waxing(e), percent(e.Illuminated))
+			plainNames[e.Kind.Name], at, s.where, waxing(e), percent(e.Illuminated))
 	case "moon-transit":
 		title = fmt.Sprintf("Moon highest, %s up", degrees(e.Altitude))
 		fmt.Fprintf(&b, "The Moon crosses the meridian at %s, %s, %s above the horizon (%s, %s lit).",
-			at, where(s), degrees(e.Altitude), waxing(e), percent(e.Illuminated))
+			at, s.where, degrees(e.Altitude), waxing(e), percent(e.Illuminated))
 	case "dark-window":
 		title = fmt.Sprintf("Dark sky, %s", amount(e.End.Sub(e.Start).Round(time.Minute)))
 		fmt.Fprintf(&b, "Dark sky from %s to %s (%s), %s: the Sun is more than 18° below the horizon and ",
-			at, localClock(e.End, loc), amount(e.End.Sub(e.Start).Round(time.Minute)), where(s))
+			at, localClock(e.End, loc), amount(e.End.Sub(e.Start).Round(time.Minute)), s.where)
 		if e.Illuminated > 0 {
 			fmt.Fprintf(&b, "the Moon is down or less than %s lit.", percent(e.Illuminated))
 		} else {
 			b.WriteString("the Moon is below the horizon.")
 		}
 	default:
-		return e.Kind.String(), fmt.Sprintf("%s at %s, %s.", e.Kind, at, where(s))
+		return e.Kind.String(), fmt.Sprintf("%s at %s, %s.", e.Kind, at, s.where)
 	}
 	return title, b.String()
 }
 
 // describeMoonNote gives the all-day entry for a date without a Moon event.
-func describeMoonNote(s *config.Site, n Note) (string, string) {
+func describeMoonNote(s *siteInfo, n Note) (string, string) {
 	var title string
 	switch n.Kind.Name {
 	case "moonrise", "moonset":
@@ -238,5 +238,5 @@ func describeMoonNote(s *config.Site, n Note) (string, string) {
 	default:
 		title = n.Kind.String()
 	}
-	return title, fmt.Sprintf("%s at %s on %s.", title, where(s), n.Date.Format("Monday 2 January 2006"))
+	return title, fmt.Sprintf("%s at %s on %s.", title, s.where, n.Date.Format("Monday 2 January 2006"))
 }

@@ -2,6 +2,7 @@ package feed
 
 import (
 	"fmt"
+	"slices"
 	"sort"
 	"sync"
 	"time"
@@ -113,6 +114,9 @@ func (s *Sky) EventsFor(p Place, specs []config.KindSpec, first, last time.Time)
 			last.Format(time.DateOnly), first.Format(time.DateOnly))
 	}
 	c := &collector{sky: s, p: p, first: first, last: last}
+	if err := c.prepare(altitudes(p.Observer, specs)...); err != nil {
+		return nil, nil, fmt.Errorf("feed: %w", err)
+	}
 	for _, k := range specs {
 		c.maxLit = k.MaxIllumination
 		if err := c.add(k.Kind); err != nil {
@@ -131,6 +135,7 @@ type collector struct {
 	events      []Event
 	notes       []Note
 	lengths     []time.Duration // day lengths for first-1..last, computed once
+	thresholds  map[float64]*threshold
 	maxLit      float64         // dark-window: the Moon's largest illuminated fraction still dark
 }
 
@@ -184,11 +189,90 @@ func (c *collector) add(k config.Kind) error {
 	return c.addMoon(k)
 }
 
+// threshold is the Sun's crossings of one altitude over the collector's
+// span, with the Sun's side of it at the start of the span.
+type threshold struct {
+	xs      []astro.Crossing
+	upFirst bool // above the altitude at the start of the span
+}
+
+// thresholdSpan is the UTC span over which crossings are computed: the
+// dates first-2..last+2, enough for spans that start the day before.
+func (c *collector) thresholdSpan() (time.Time, time.Time) {
+	return c.span(2)
+}
+
+// prepare computes the crossings of every altitude not yet known, in one
+// pass of the ephemeris (the Sun's culminations are found once for all).
+func (c *collector) prepare(alts ...float64) error {
+	if c.thresholds == nil {
+		c.thresholds = map[float64]*threshold{}
+	}
+	var missing []float64
+	for _, a := range alts {
+		if _, ok := c.thresholds[a]; !ok && !slices.Contains(missing, a) {
+			missing = append(missing, a)
+		}
+	}
+	if len(missing) == 0 {
+		return nil
+	}
+	from, to := c.thresholdSpan()
+	o := c.p.Observer
+	lists, err := c.sky.eph.SunCrossingsMany(o, missing, from, to)
+	if err != nil {
+		return err
+	}
+	h0, err := c.sky.eph.SunAltitude(o, from)
+	if err != nil {
+		return err
+	}
+	for i, a := range missing {
+		c.thresholds[a] = &threshold{xs: lists[i], upFirst: h0 > a}
+	}
+	return nil
+}
+
+// threshold returns the crossings of alt, computing them if needed.
+func (c *collector) threshold(alt float64) (*threshold, error) {
+	if err := c.prepare(alt); err != nil {
+		return nil, err
+	}
+	return c.thresholds[alt], nil
+}
+
+// altitudes lists the thresholds the Sun's kinds of specs need, so that
+// prepare finds them all in one pass.
+func altitudes(o astro.Observer, specs []config.KindSpec) []float64 {
+	var out []float64
+	for _, sp := range specs {
+		switch k := sp.Kind; k.Name {
+		case "sunrise", "sunset", "photoperiod":
+			out = append(out, o.RiseSetAltitude())
+		case "daily-summary":
+			out = append(out, o.RiseSetAltitude(), astro.CivilTwilight)
+		case "civil-dawn", "civil-dusk":
+			out = append(out, astro.CivilTwilight)
+		case "nautical-dawn", "nautical-dusk":
+			out = append(out, astro.NauticalTwilight)
+		case "astronomical-dawn", "astronomical-dusk":
+			out = append(out, astro.AstronomicalTwilight)
+		case "golden-hour":
+			out = append(out, astro.GoldenHourLow, astro.GoldenHourHigh)
+		case "blue-hour":
+			out = append(out, astro.BlueHourLow, astro.BlueHourHigh)
+		case "sun-altitude":
+			out = append(out, k.Altitude)
+		}
+	}
+	return out
+}
+
 // crossings adds the crossings of a threshold altitude in one direction
-// (both when dir is 0), and a note for each date without any crossing.
+// (both when dir is 0), and a note for each date without any crossing,
+// saying on which side of the threshold the Sun stays.
 func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, family string) error {
-	days, err := c.sky.eph.SunDays(c.p.Observer, alt, c.p.Location,
-		midnight(c.first, c.p.Location), midnight(c.last, c.p.Location))
+	th, err := c.threshold(alt)
 	if err != nil {
 		return err
 	}
@@ -198,26 +282,33 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 			return err
 		}
 	}
-	for i, d := range days {
-		date := civil(d.Date)
-		if d.State != astro.Crosses {
-			c.notes = append(c.notes, Note{Kind: k, Date: date, State: d.State, Family: family})
-			continue
+	xs, up := th.xs, th.upFirst
+	for i, d := 0, c.first; !d.After(c.last); i, d = i+1, d.AddDate(0, 0, 1) {
+		start, end := midnight(d, c.p.Location), midnight(d.AddDate(0, 0, 1), c.p.Location)
+		for len(xs) > 0 && xs[0].Time.Before(start) {
+			up = xs[0].Direction == astro.Rising
+			xs = xs[1:]
 		}
-		add := func(ts []time.Time, direction astro.Direction) {
-			for _, t := range ts {
-				e := Event{Kind: k, Start: t, Direction: direction, Date: date}
-				if horizon {
-					e.DayLength, e.DayChange = c.lengths[i+1], c.lengths[i+1]-c.lengths[i]
-				}
-				c.events = append(c.events, e)
+		crossed := false
+		for len(xs) > 0 && xs[0].Time.Before(end) {
+			x := xs[0]
+			xs = xs[1:]
+			up, crossed = x.Direction == astro.Rising, true
+			if dir != 0 && x.Direction != dir {
+				continue
 			}
+			e := Event{Kind: k, Start: x.Time, Direction: x.Direction, Date: d}
+			if horizon {
+				e.DayLength, e.DayChange = c.lengths[i+1], c.lengths[i+1]-c.lengths[i]
+			}
+			c.events = append(c.events, e)
 		}
-		if dir == 0 || dir == astro.Rising {
-			add(d.Rising, astro.Rising)
-		}
-		if dir == 0 || dir == astro.Setting {
-			add(d.Setting, astro.Setting)
+		if !crossed {
+			state := astro.AlwaysBelow
+			if up {
+				state = astro.AlwaysAbove
+			}
+			c.notes = append(c.notes, Note{Kind: k, Date: d, State: state, Family: family})
 		}
 	}
 	return nil
@@ -240,20 +331,18 @@ func (c *collector) dayLengths() error {
 // the Sun never drops below, 0 when it never gets there, and an interval that
 // runs past midnight counts on each date for its own part.
 func (c *collector) above(alt float64) ([]time.Duration, error) {
-	from := midnight(c.first.AddDate(0, 0, -1), c.p.Location)
-	to := midnight(c.last.AddDate(0, 0, 1), c.p.Location)
-	o := c.p.Observer
-	xs, err := c.sky.eph.SunCrossings(o, alt, from, to)
+	th, err := c.threshold(alt)
 	if err != nil {
 		return nil, err
 	}
-	h0, err := c.sky.eph.SunAltitude(o, from)
-	if err != nil {
-		return nil, err
+	from := midnight(c.first.AddDate(0, 0, -1), c.p.Location)
+	xs, up := th.xs, th.upFirst
+	for len(xs) > 0 && xs[0].Time.Before(from) {
+		up = xs[0].Direction == astro.Rising
+		xs = xs[1:]
 	}
 	n := int(c.last.Sub(c.first).Hours()/24+0.5) + 2
 	lengths := make([]time.Duration, n)
-	up := h0 > alt
 	cur := from
 	for day := 0; day < n; {
 		dayEnd := midnight(c.first.AddDate(0, 0, day), c.p.Location)
@@ -329,20 +418,11 @@ func (c *collector) noons(k config.Kind) error {
 // high latitude) is "all-day". Dates on which the Sun never enters the band
 // get a note.
 func (c *collector) band(k config.Kind, low, high float64) error {
-	from, to := c.span(2)
 	o := c.p.Observer
-	lo, err := c.sky.eph.SunCrossings(o, low, from, to)
-	if err != nil {
+	if err := c.prepare(low, high); err != nil {
 		return err
 	}
-	hi, err := c.sky.eph.SunCrossings(o, high, from, to)
-	if err != nil {
-		return err
-	}
-	h0, err := c.sky.eph.SunAltitude(o, from)
-	if err != nil {
-		return err
-	}
+	lo, hi := c.thresholds[low].xs, c.thresholds[high].xs
 	type mark struct {
 		t    time.Time
 		high bool
@@ -357,7 +437,7 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 	}
 	sort.Slice(marks, func(i, j int) bool { return marks[i].t.Before(marks[j].t) })
 
-	in := h0 >= low && h0 <= high
+	in := c.thresholds[low].upFirst && !c.thresholds[high].upFirst
 	var start time.Time
 	var entered mark
 	seen := map[time.Time]bool{}

@@ -64,6 +64,16 @@ func degrees(a float64) string {
 	return strings.Replace(s, "-", "−", 1)
 }
 
+// siteInfo is a site with its description, formatted once per feed.
+type siteInfo struct {
+	*config.Site
+	where string // "Name (48.200° N, 16.400° E)"
+}
+
+func newSiteInfo(s *config.Site) *siteInfo {
+	return &siteInfo{Site: s, where: where(s)}
+}
+
 func where(s *config.Site) string {
 	ns, ew := "N", "E"
 	lat, lon := s.Latitude, s.Longitude
@@ -161,25 +171,25 @@ func amount(d time.Duration) string {
 }
 
 // describe gives the title and plain-language description of an event.
-func describe(s *config.Site, e Event) (string, string) {
+func describe(s *siteInfo, e Event) (string, string) {
 	loc := s.TimeZone.Location
 	at := localClock(e.Start, loc)
 	var b strings.Builder
 	title := plainNames[e.Kind.Name]
 	switch e.Kind.Name {
 	case "sunrise", "sunset":
-		fmt.Fprintf(&b, "%s at %s, %s.\n", title, at, where(s))
+		fmt.Fprintf(&b, "%s at %s, %s.\n", title, at, s.where)
 		fmt.Fprintf(&b, "Day length %s (%s on the day before).\n", hm(e.DayLength), change(e.DayChange))
 		b.WriteString("Upper limb of the Sun on the horizon with standard refraction.\n")
 		b.WriteString(cautionLegal)
 	case "civil-dawn", "civil-dusk", "nautical-dawn", "nautical-dusk", "astronomical-dawn", "astronomical-dusk":
-		fmt.Fprintf(&b, "%s at %s, %s.\n%s", title, at, where(s), twilightMeaning[e.Kind.Name])
+		fmt.Fprintf(&b, "%s at %s, %s.\n%s", title, at, s.where, twilightMeaning[e.Kind.Name])
 		if strings.HasPrefix(e.Kind.Name, "civil") {
 			b.WriteString("\n" + cautionLegal)
 		}
 	case "solar-noon":
 		title = fmt.Sprintf("Solar noon, Sun %s high", degrees(e.Altitude))
-		fmt.Fprintf(&b, "Solar noon at %s, %s: the Sun crosses the meridian at %s altitude", at, where(s), degrees(e.Altitude))
+		fmt.Fprintf(&b, "Solar noon at %s, %s: the Sun crosses the meridian at %s altitude", at, s.where, degrees(e.Altitude))
 		if e.Altitude < 0 {
 			b.WriteString(" (below the horizon: polar night)")
 		}
@@ -191,7 +201,7 @@ func describe(s *config.Site, e Event) (string, string) {
 			lo, hi = "−6°", "−4°"
 		}
 		fmt.Fprintf(&b, "%s from %s to %s (%s), %s.\nThe Sun's centre is between %s and %s: soft, warm light for photography and events.\n",
-			title, at, localClock(e.End, loc), hm(e.End.Sub(e.Start)), where(s), lo, hi)
+			title, at, localClock(e.End, loc), hm(e.End.Sub(e.Start)), s.where, lo, hi)
 		b.WriteString(cautionEyes)
 	case "sun-altitude":
 		verb := "rises through"
@@ -199,7 +209,7 @@ func describe(s *config.Site, e Event) (string, string) {
 			verb = "sinks through"
 		}
 		title = fmt.Sprintf("Sun %s %s", verb, degrees(e.Kind.Altitude))
-		fmt.Fprintf(&b, "The Sun's centre %s %s altitude at %s, %s.\n%s", verb, degrees(e.Kind.Altitude), at, where(s), cautionEyes)
+		fmt.Fprintf(&b, "The Sun's centre %s %s altitude at %s, %s.\n%s", verb, degrees(e.Kind.Altitude), at, s.where, cautionEyes)
 	case "march-equinox", "june-solstice", "september-equinox", "december-solstice":
 		season := seasonStarted(e.Kind.Name, s.Latitude)
 		fmt.Fprintf(&b, "%s at %s (%s UTC).\nStart of astronomical %s in the %s hemisphere; it lasts %s, until the next equinox or solstice.",
@@ -290,7 +300,7 @@ func thousands(x float64) string {
 }
 
 // describeNote gives the all-day entry for a date without an event.
-func describeNote(s *config.Site, n Note) (string, string) {
+func describeNote(s *siteInfo, n Note) (string, string) {
 	above := n.State == astro.AlwaysAbove
 	var title, desc string
 	switch n.Family {
@@ -330,12 +340,12 @@ func describeNote(s *config.Site, n Note) (string, string) {
 			return describeMoonNote(s, n)
 		}
 	}
-	return title, fmt.Sprintf("%s at %s on %s.", desc, where(s), n.Date.Format("Monday 2 January 2006"))
+	return title, fmt.Sprintf("%s at %s on %s.", desc, s.where, n.Date.Format("Monday 2 January 2006"))
 }
 
 // describeSummary gives the daily summary: sunrise, sunset, day length and
 // civil twilight, with the polar states spelled out.
-func describeSummary(s *config.Site, length, delta time.Duration, evs []Event, notes []Note) (string, string) {
+func describeSummary(s *siteInfo, length, delta time.Duration, evs []Event, notes []Note) (string, string) {
 	loc := s.TimeZone.Location
 	var b strings.Builder
 	title := fmt.Sprintf("Daylight %s", hm(length))
@@ -346,6 +356,6 @@ func describeSummary(s *config.Site, length, delta time.Duration, evs []Event, n
 	for _, e := range evs {
 		fmt.Fprintf(&b, "%s %s\n", plainNames[e.Kind.Name], e.Start.In(loc).Format("15:04 MST"))
 	}
-	fmt.Fprintf(&b, "Day length %s (%s on the day before), %s.\n%s", hm(length), change(delta), where(s), cautionLegal)
+	fmt.Fprintf(&b, "Day length %s (%s on the day before), %s.\n%s", hm(length), change(delta), s.where, cautionLegal)
 	return title, b.String()
 }

@@ -136,7 +136,7 @@ type collector struct {
 	notes       []Note
 	lengths     []time.Duration // day lengths for first-1..last, computed once
 	thresholds  map[float64]*threshold
-	maxLit      float64         // dark-window: the Moon's largest illuminated fraction still dark
+	maxLit      float64 // dark-window: the Moon's largest illuminated fraction still dark
 }
 
 func (c *collector) inRange(d time.Time) bool {

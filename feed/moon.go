@@ -43,9 +43,14 @@ func (c *collector) addMoon(k config.Kind) error {
 	return fmt.Errorf("kind %q has no computation", k.String())
 }
 
-// lit fills the illumination of a Moon event at its start.
-func lit(e *Event) error {
-	il, err := astro.MoonIllumination(e.Start)
+// lit fills the illumination of a Moon event at its start, from the shared
+// Moon track.
+func (c *collector) lit(e *Event) error {
+	me, err := c.sky.moonEphemeris()
+	if err != nil {
+		return err
+	}
+	il, err := me.Illumination(e.Start)
 	if err != nil {
 		return err
 	}
@@ -68,7 +73,7 @@ func (c *collector) phases(k config.Kind) error {
 		if !c.inRange(e.Date) {
 			continue
 		}
-		if err := lit(&e); err != nil {
+		if err := c.lit(&e); err != nil {
 			return err
 		}
 		c.events = append(c.events, e)
@@ -107,7 +112,7 @@ func (c *collector) moonRiseSet(k config.Kind) error {
 			if rising {
 				e.Direction = astro.Rising
 			}
-			if err := lit(&e); err != nil {
+			if err := c.lit(&e); err != nil {
 				return err
 			}
 			c.events = append(c.events, e)
@@ -131,7 +136,7 @@ func (c *collector) moonTransits(k config.Kind) error {
 		if !c.inRange(e.Date) {
 			continue
 		}
-		if err := lit(&e); err != nil {
+		if err := c.lit(&e); err != nil {
 			return err
 		}
 		c.events = append(c.events, e)

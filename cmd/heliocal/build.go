@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"strings"
+	"sync"
 	"time"
 
 	"heliocal/astro"
@@ -158,8 +159,43 @@ func markLabel(e feed.Event) string {
 	return e.Kind.Name
 }
 
+// skyCache keeps the few shared ephemerides ad-hoc feeds use: most queries
+// ask for the same window (today and the year ahead) from different places,
+// and the ephemeris does not depend on the place.
+type skyCache struct {
+	mu    sync.Mutex
+	skies map[string]*feed.Sky
+	order []string
+}
+
+const skyCacheSize = 8
+
+func (c *skyCache) get(first, last time.Time) (*feed.Sky, error) {
+	key := first.Format(time.DateOnly) + "/" + last.Format(time.DateOnly)
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	if s, ok := c.skies[key]; ok {
+		return s, nil
+	}
+	s, err := feed.NewSky(first, last)
+	if err != nil {
+		return nil, err
+	}
+	if c.skies == nil {
+		c.skies = map[string]*feed.Sky{}
+	}
+	if len(c.order) == skyCacheSize {
+		delete(c.skies, c.order[0])
+		c.order = c.order[1:]
+	}
+	c.skies[key] = s
+	c.order = append(c.order, key)
+	return s, nil
+}
+
 // adhocFeed renders the ad-hoc feed of a validated query.
 func adhocFeed(l layout, refresh time.Duration) serve.AdhocFunc {
+	skies := &skyCache{}
 	return func(_ context.Context, q serve.AdhocQuery) ([]byte, error) {
 		first := q.Start
 		last := first.AddDate(0, 0, q.Days-1)
@@ -180,7 +216,7 @@ func adhocFeed(l layout, refresh time.Duration) serve.AdhocFunc {
 			}
 			f.Kinds = append(f.Kinds, config.KindSpec{Kind: k})
 		}
-		sky, err := feed.NewSky(first, last)
+		sky, err := skies.get(first, last)
 		if err != nil {
 			if errors.Is(err, astro.ErrOutOfRange) {
 				return nil, &serve.QueryError{Param: serve.ParamStart, Value: first.Format(time.DateOnly), Msg: err.Error()}

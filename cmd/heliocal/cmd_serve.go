@@ -19,6 +19,7 @@ type serveOptions struct {
 	listen    string
 	baseURL   string
 	logFormat string
+	accessLog bool
 }
 
 func newServeCommand(g *globals) *cobra.Command {
@@ -42,6 +43,7 @@ and the old feeds keep being served. SIGTERM or SIGINT shut down gracefully.` + 
 	f.StringVarP(&o.listen, "listen", "l", "", "address to listen on (default: service.listen, \":8080\")")
 	f.StringVar(&o.baseURL, "base-url", "", "public URL the server is reached at (default: service.base_url)")
 	f.StringVar(&o.logFormat, "log-format", "text", "log format on stderr: text or json")
+	f.BoolVar(&o.accessLog, "access-log", true, "log one line per request (--access-log=false to turn off)")
 	return cmd
 }
 
@@ -81,8 +83,13 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 		listen = o.listen
 	}
 	l := newLayout(base, "feeds/")
+	access := log
+	if !o.accessLog {
+		access = slog.New(slog.DiscardHandler)
+	}
 	srv, err := serve.New(serve.Options{
 		Logger:            log,
+		AccessLogger:      access,
 		Build:             serveBuild(cfg, base),
 		Adhoc:             adhocFeed(l, refreshInterval(cfg, time.Now())),
 		AdhocDefaultKinds: []string{"sunrise", "sunset", "civil-dawn", "civil-dusk"},

@@ -75,9 +75,9 @@ func build(cfg *config.Config, now time.Time, l layout) ([]publish.Source, publi
 		Charts:       chartsFor(cfg, now),
 		MaxFeedBytes: cfg.Service.MaxFeedBytes,
 	}
-	if l.feedPath == "" {
-		opts.BaseURL = l.base
-	}
+	// serve answers /<id>.ics as well as /feeds/<id>.ics, so the index's
+	// links and feeds.json URLs are the same in both modes
+	opts.BaseURL = l.base
 	return srcs, opts, nil
 }
 
@@ -123,7 +123,7 @@ func chartsFor(cfg *config.Config, now time.Time) func(context.Context, feed.Sit
 				k := ks.Kind
 				switch {
 				case k.Name == "photoperiod" && !seen[k.String()]:
-					chart.Levels = append(chart.Levels, publish.Level{Length: k.DayLength, Label: k.DayLength.String()})
+					chart.Levels = append(chart.Levels, publish.Level{Length: k.DayLength})
 				case k.IsYearly() && !k.IsMoon() && !seen[k.String()]:
 					marks = append(marks, k)
 				}

@@ -4,8 +4,9 @@ import (
 	"crypto/sha256"
 	"encoding/hex"
 	"fmt"
+	"slices"
 	"sort"
-	"strings"
+	"strconv"
 	"time"
 
 	"heliocal/astro"
@@ -162,6 +163,7 @@ func (sky *Sky) Entries(s *config.Site, feedID string, specs []config.KindSpec, 
 		if err := col.add(spec.Kind); err != nil {
 			return nil, fmt.Errorf("%s: %w", spec.Kind, err)
 		}
+		w.out = slices.Grow(w.out, len(col.events)-n0+len(col.notes)-m0)
 		for _, e := range col.events[n0:] {
 			w.event(spec, e)
 		}
@@ -212,17 +214,41 @@ type entryWriter struct {
 	feedID string
 	site   *siteInfo
 	seen   map[string]int
+	cats   map[string][]string
+	buf    []byte
 	out    []Entry
 }
 
 // uid derives a stable UID from the identity of an entry, never from its
 // computed time: a rebuild that moves an event by a second keeps its UID.
 func (w *entryWriter) uid(parts ...string) string {
-	key := w.feedID + "|" + strings.Join(parts, "|")
+	b := append(w.buf[:0], w.feedID...)
+	for _, p := range parts {
+		b = append(append(b, '|'), p...)
+	}
+	key := string(b)
 	n := w.seen[key]
 	w.seen[key] = n + 1
-	sum := sha256.Sum256(fmt.Appendf(nil, "%s|%d", key, n))
-	return hex.EncodeToString(sum[:12]) + "@heliocal"
+	b = strconv.AppendInt(append(b, '|'), int64(n), 10)
+	sum := sha256.Sum256(b)
+	w.buf = b
+	out := make([]byte, 24, 24+len("@heliocal"))
+	hex.Encode(out, sum[:12])
+	return string(append(out, "@heliocal"...))
+}
+
+// categories returns the CATEGORIES of a kind, built once per feed.
+func (w *entryWriter) categories(k config.Kind) []string {
+	name := k.Name
+	if c, ok := w.cats[name]; ok {
+		return c
+	}
+	if w.cats == nil {
+		w.cats = map[string][]string{}
+	}
+	c := categories(k)
+	w.cats[name] = c
+	return c
 }
 
 func (w *entryWriter) event(spec config.KindSpec, e Event) {
@@ -240,7 +266,7 @@ func (w *entryWriter) event(spec config.KindSpec, e Event) {
 		Kind:        e.Kind.String(),
 		Title:       title,
 		Description: desc,
-		Categories:  categories(e.Kind),
+		Categories:  w.categories(e.Kind),
 		Start:       e.Start.Add(offset),
 		Date:        e.Date,
 	}
@@ -266,7 +292,7 @@ func (w *entryWriter) note(n Note) {
 		Kind:        n.Kind.String(),
 		Title:       title,
 		Description: desc,
-		Categories:  categories(n.Kind),
+		Categories:  w.categories(n.Kind),
 		Start:       n.Date,
 		End:         n.Date.AddDate(0, 0, 1),
 		AllDay:      true,

@@ -283,6 +283,7 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 		}
 	}
 	xs, up := th.xs, th.upFirst
+	c.events = slices.Grow(c.events, len(xs))
 	for i, d := 0, c.first; !d.After(c.last); i, d = i+1, d.AddDate(0, 0, 1) {
 		start, end := midnight(d, c.p.Location), midnight(d.AddDate(0, 0, 1), c.p.Location)
 		for len(xs) > 0 && xs[0].Time.Before(start) {
@@ -438,6 +439,7 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 	sort.Slice(marks, func(i, j int) bool { return marks[i].t.Before(marks[j].t) })
 
 	in := c.thresholds[low].upFirst && !c.thresholds[high].upFirst
+	c.events = slices.Grow(c.events, len(lo)/2)
 	var start time.Time
 	var entered mark
 	seen := map[time.Time]bool{}

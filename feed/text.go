@@ -175,6 +175,7 @@ func describe(s *siteInfo, e Event) (string, string) {
 	loc := s.TimeZone.Location
 	at := localClock(e.Start, loc)
 	var b strings.Builder
+	b.Grow(320)
 	title := plainNames[e.Kind.Name]
 	switch e.Kind.Name {
 	case "sunrise", "sunset":

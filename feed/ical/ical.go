@@ -49,8 +49,11 @@ package ical
 
 import (
 	"bytes"
+	"encoding/binary"
 	"fmt"
 	"io"
+	"math"
+	"slices"
 	"strconv"
 	"strings"
 	"time"
@@ -119,13 +122,67 @@ func Encode(w io.Writer, c *feed.Calendar, opts Options) error {
 	return nil
 }
 
-// writer holds what every event of one calendar shares.
+// writer holds what every event of one calendar shares. Besides the inputs
+// it keeps the values and parameter maps that are the same for every event,
+// computed once per calendar (see prepare), so that an event costs little
+// more than its own strings: the write of a site-year is dominated by the
+// library's serialization, not by building the events.
 type writer struct {
 	c     *feed.Calendar
 	loc   *time.Location // nil: write UTC
 	tzid  string
 	stamp time.Time
 	geo   string
+
+	stampValue string // DTSTAMP and LAST-MODIFIED value
+	location   string // LOCATION value (cleaned site name), "" for none
+	trigger    string // VALARM TRIGGER value
+
+	// Parameter maps shared by the properties of all events of this
+	// calendar. Sharing is safe: golang-ical only reads ICalParameters when
+	// serializing, nothing here mutates them after prepare, and the
+	// calendar never leaves Marshal (SetProperty, were it called, would
+	// assign a fresh map rather than modify the shared one).
+	dateParams map[string][]string // VALUE=DATE
+	tzidParams map[string][]string // TZID=<tzid>; nil when the TZID needs DQUOTEs
+	tzidInLine string              // ";TZID=<quoted tzid>:" for pre-formatted lines
+
+	// cats caches the CATEGORIES line per distinct list of categories (a
+	// feed has a handful: one per kind); catKey is the scratch lookup key.
+	cats   map[string][]ics.Component
+	catKey []byte
+
+	span offsetSpan // the last offset period looked up (see offsetAt)
+	buf  []byte     // scratch for formatting an event's date-time values
+
+	// Backing arrays for all events, sliced per event (see event).
+	events []ics.VEvent
+	props  []ics.IANAProperty
+}
+
+// eventProps is the most properties an event gets: UID, DTSTAMP, DTSTART,
+// DTEND, SUMMARY, DESCRIPTION, LOCATION, GEO, TRANSP,
+// X-MICROSOFT-CDO-BUSYSTATUS, SEQUENCE, LAST-MODIFIED.
+const eventProps = 12
+
+// prepare computes the per-calendar values of w, once its inputs are checked.
+func (w *writer) prepare() {
+	w.stampValue = w.stamp.Format(utcLayout)
+	w.location = cleanText(w.c.Site.Name)
+	w.trigger = "-" + formatDuration(w.c.Alarm)
+	w.dateParams = map[string][]string{string(ics.ParameterValue): {string(ics.ValueDataTypeDate)}}
+	if w.loc != nil {
+		if libraryParamSafe(w.tzid) {
+			w.tzidParams = map[string][]string{string(ics.ParameterTzid): {w.tzid}}
+		} else {
+			w.tzidInLine = ";TZID=" + paramValue(w.tzid) + ":"
+		}
+	}
+	w.cats = make(map[string][]ics.Component)
+	w.span = offsetSpan{from: 1, to: 0} // empty: the first lookup fills it
+	n := len(w.c.Entries)
+	w.events = make([]ics.VEvent, n)
+	w.props = make([]ics.IANAProperty, 0, n*eventProps)
 }
 
 func build(c *feed.Calendar, opts Options) (*ics.Calendar, error) {
@@ -170,6 +227,7 @@ func build(c *feed.Calendar, opts Options) (*ics.Calendar, error) {
 			return nil, fail("site %q: %w", c.Site.ID, err)
 		}
 	}
+	w.prepare()
 
 	cal := ics.NewCalendarFor("heliocal")
 	cal.SetProductId(opts.ProductID())
@@ -210,6 +268,7 @@ func build(c *feed.Calendar, opts Options) (*ics.Calendar, error) {
 		cal.AddVTimezone(vtimezone(w.tzid, w.loc, from, to))
 	}
 
+	cal.Components = slices.Grow(cal.Components, len(c.Entries))
 	seen := make(map[string]bool, len(c.Entries))
 	for i := range c.Entries {
 		e := &c.Entries[i]
@@ -220,7 +279,7 @@ func build(c *feed.Calendar, opts Options) (*ics.Calendar, error) {
 			return nil, fail("entry %d: duplicate UID %q", i, e.UID)
 		}
 		seen[e.UID] = true
-		ev, err := w.event(e)
+		ev, err := w.event(i, e)
 		if err != nil {
 			return nil, fail("entry %q: %w", e.UID, err)
 		}
@@ -260,10 +319,22 @@ func (w *writer) zoneSpan() (from, to time.Time) {
 	return from.UTC(), to.Add(zoneMargin).UTC()
 }
 
-func (w *writer) event(e *feed.Entry) (*ics.VEvent, error) {
-	ev := ics.NewEvent(e.UID)
+// event builds the VEVENT of entry i. The properties are the ones the
+// library's setters would write (SetDtStampTime, SetAllDayStartAt,
+// SetSummary, ...), in the same order with the same values and parameters,
+// but appended directly: every property is set exactly once, so the
+// setters' replace-scan (SetProperty) finds nothing to replace, and a
+// property without parameters needs no map (the library serializes a nil
+// ICalParameters like an empty one).
+func (w *writer) event(i int, e *feed.Entry) (*ics.VEvent, error) {
+	// The event and its properties live in per-calendar backing arrays. The
+	// properties slice is capped at its length, so anything appending to it
+	// later reallocates instead of overwriting the next event's properties.
+	ev := &w.events[i]
+	props := w.props[len(w.props):len(w.props)]
+	props = append(props, property(ics.ComponentPropertyUniqueId, e.UID, nil))
 	// DTSTAMP is the calendar's deterministic stamp, in UTC.
-	ev.SetDtStampTime(w.stamp)
+	props = append(props, property(ics.ComponentPropertyDtstamp, w.stampValue, nil))
 	var extra []ics.Component // pre-formatted lines, see contentLine
 	if e.AllDay {
 		start := dateOf(e.Start)
@@ -275,8 +346,17 @@ func (w *writer) event(e *feed.Entry) (*ics.VEvent, error) {
 			return nil, fmt.Errorf("all-day end %s is not after start %s",
 				end.Format(time.DateOnly), start.Format(time.DateOnly))
 		}
-		ev.SetAllDayStartAt(start) // DTSTART;VALUE=DATE
-		ev.SetAllDayEndAt(end)     // exclusive DTEND;VALUE=DATE
+		// DTSTART;VALUE=DATE and the exclusive DTEND;VALUE=DATE, as
+		// SetAllDayStartAt/SetAllDayEndAt write them; both values share one
+		// string allocation.
+		b := start.AppendFormat(w.buf[:0], dateLayout)
+		n := len(b)
+		b = end.AppendFormat(b, dateLayout)
+		vals := string(b)
+		w.buf = b
+		props = append(props,
+			property(ics.ComponentPropertyDtStart, vals[:n], w.dateParams),
+			property(ics.ComponentPropertyDtEnd, vals[n:], w.dateParams))
 	} else {
 		if e.Start.IsZero() {
 			return nil, fmt.Errorf("timed entry has no Start")
@@ -290,69 +370,203 @@ func (w *writer) event(e *feed.Entry) (*ics.VEvent, error) {
 		if !end.After(start) {
 			end = start.Add(instantLength)
 		}
-		extra = append(extra, w.setTime(ev, ics.ComponentPropertyDtStart, start)...)
-		extra = append(extra, w.setTime(ev, ics.ComponentPropertyDtEnd, end)...)
+		b, startLocal := w.appendTime(w.buf[:0], start)
+		n := len(b)
+		b, endLocal := w.appendTime(b, end)
+		vals := string(b)
+		w.buf = b
+		props, extra = w.timeProp(props, extra, ics.ComponentPropertyDtStart, vals[:n], startLocal)
+		props, extra = w.timeProp(props, extra, ics.ComponentPropertyDtEnd, vals[n:], endLocal)
 	}
-	if s := cleanText(e.Title); s != "" {
-		ev.SetSummary(s)
+	title := cleanText(e.Title)
+	if title != "" {
+		props = append(props, property(ics.ComponentPropertySummary, title, nil))
 	}
 	if d := cleanText(e.Description); d != "" {
-		ev.SetDescription(d)
+		props = append(props, property(ics.ComponentPropertyDescription, d, nil))
 	}
-	if cats := categories(e.Categories); cats != "" {
-		// CATEGORIES is a list of TEXT values on one line: the commas between
-		// values must stay as they are, commas inside a value are escaped.
-		// The library would escape the separators too, so the line is
-		// written pre-formatted.
-		extra = append(extra, &contentLine{line: "CATEGORIES:" + cats})
+	if w.location != "" {
+		props = append(props, property(ics.ComponentPropertyLocation, w.location, nil))
 	}
-	if l := cleanText(w.c.Site.Name); l != "" {
-		ev.SetLocation(l)
-	}
-	ev.SetProperty(ics.ComponentPropertyGeo, w.geo) // FLOAT: not escaped
-	ev.SetTimeTransparency(ics.TransparencyTransparent)
-	ev.AddProperty("X-MICROSOFT-CDO-BUSYSTATUS", "FREE")
-	ev.SetSequence(0)
-	ev.SetLastModifiedAt(w.stamp)
+	props = append(props,
+		property(ics.ComponentPropertyGeo, w.geo, nil), // FLOAT: not escaped
+		property(ics.ComponentPropertyTransp, string(ics.TransparencyTransparent), nil),
+		property("X-MICROSOFT-CDO-BUSYSTATUS", "FREE", nil),
+		property(ics.ComponentPropertySequence, "0", nil),
+		property(ics.ComponentPropertyLastModified, w.stampValue, nil))
+	ev.Properties = props[:len(props):len(props)]
+	w.props = w.props[:len(w.props)+len(props)]
+
 	// Pre-formatted lines come after the library's properties and before any
 	// VALARM (RFC 5545 §3.6.1: alarms follow the event's properties).
-	ev.Components = append(ev.Components, extra...)
-	if w.c.Alarm > 0 && !e.AllDay {
-		a := ev.AddAlarm()
-		a.SetAction(ics.ActionDisplay)
-		desc := cleanText(e.Title)
+	cats := w.categoriesLine(e.Categories)
+	alarm := w.c.Alarm > 0 && !e.AllDay
+	if extra == nil && !alarm {
+		// The shared slice is capped at its length (see categoriesLine):
+		// an append to ev.Components cannot write into it.
+		ev.Components = cats
+		return ev, nil
+	}
+	comps := make([]ics.Component, 0, len(extra)+len(cats)+1) // +1: the VALARM
+	ev.Components = append(append(comps, extra...), cats...)
+	if alarm {
+		desc := title
 		if desc == "" {
 			desc = "Reminder"
 		}
-		a.SetProperty(ics.ComponentPropertyDescription, desc) // required for DISPLAY
-		a.SetTrigger("-" + formatDuration(w.c.Alarm))
+		a := &ics.VAlarm{}
+		a.Properties = []ics.IANAProperty{
+			property(ics.ComponentPropertyAction, string(ics.ActionDisplay), nil),
+			property(ics.ComponentPropertyDescription, desc, nil), // required for DISPLAY
+			property(ics.ComponentPropertyTrigger, w.trigger, nil),
+		}
+		ev.Components = append(ev.Components, a)
 	}
 	return ev, nil
 }
 
-// setTime sets DTSTART or DTEND of a timed entry to t (UTC). In local mode
-// the value is the site's wall clock with TZID; the library's SetStartAt
-// cannot be used, since it writes UTC with a trailing "Z" even with a TZID.
-// A wall clock that occurs twice is written in UTC (see isAmbiguous).
-// When the TZID needs DQUOTEs the property is returned as a pre-formatted
-// line instead of being set, as the library would backslash-escape it.
-func (w *writer) setTime(ev *ics.VEvent, prop ics.ComponentProperty, t time.Time) []ics.Component {
-	if w.loc == nil || isAmbiguous(t, w.loc) {
-		ev.SetProperty(prop, t.Format(utcLayout))
-		return nil
+// property is one property as the library's AddProperty builds it, with params
+// shared rather than copied (nil for none).
+func property(name ics.ComponentProperty, value string, params map[string][]string) ics.IANAProperty {
+	return ics.IANAProperty{BaseProperty: ics.BaseProperty{IANAToken: string(name), Value: value, ICalParameters: params}}
+}
+
+// categoriesLine returns the CATEGORIES line of cats as a one-element
+// component slice (nil when no category is left after cleaning), built once
+// per distinct list and capped at its length so that it can be shared.
+//
+// CATEGORIES is a list of TEXT values on one line: the commas between values
+// must stay as they are, commas inside a value are escaped. The library would
+// escape the separators too, so the line is written pre-formatted.
+func (w *writer) categoriesLine(cats []string) []ics.Component {
+	// The key holds each value prefixed with its length, so that two
+	// different lists never share a key; the map lookup with string(key)
+	// does not allocate.
+	key := w.catKey[:0]
+	for _, c := range cats {
+		key = binary.AppendUvarint(key, uint64(len(c)))
+		key = append(key, c...)
 	}
-	local := t.In(w.loc).Format(localLayout)
-	if libraryParamSafe(w.tzid) {
-		ev.SetProperty(prop, local, ics.WithTZID(w.tzid))
-		return nil
+	w.catKey = key
+	if line, ok := w.cats[string(key)]; ok {
+		return line
 	}
-	return []ics.Component{&contentLine{line: string(prop) + ";TZID=" + paramValue(w.tzid) + ":" + local}}
+	var line []ics.Component
+	if v := categories(cats); v != "" {
+		line = []ics.Component{&contentLine{line: "CATEGORIES:" + v}}
+	}
+	w.cats[string(key)] = line
+	return line
+}
+
+// timeProp adds DTSTART or DTEND with the value formatted by appendTime: in
+// UTC, or local with TZID. When the TZID needs DQUOTEs the property becomes a
+// pre-formatted line instead, as the library would backslash-escape it.
+func (w *writer) timeProp(props []ics.IANAProperty, extra []ics.Component, name ics.ComponentProperty, value string, local bool) ([]ics.IANAProperty, []ics.Component) {
+	switch {
+	case !local:
+		return append(props, property(name, value, nil)), extra
+	case w.tzidParams != nil:
+		return append(props, property(name, value, w.tzidParams)), extra
+	default:
+		return props, append(extra, &contentLine{line: string(name) + w.tzidInLine + value})
+	}
+}
+
+// appendTime appends the DTSTART or DTEND value of a timed entry at t (UTC,
+// whole seconds) and reports whether it is local time. In local mode the
+// value is the site's wall clock, to be written with TZID; the library's
+// SetStartAt cannot be used, since it writes UTC with a trailing "Z" even
+// with a TZID. A wall clock that occurs twice is written in UTC (see
+// isAmbiguous).
+func (w *writer) appendTime(b []byte, t time.Time) ([]byte, bool) {
+	if w.loc == nil {
+		return appendStamp(b, t, true), false
+	}
+	off, ambiguous := w.offsetAt(t)
+	if ambiguous {
+		return appendStamp(b, t, true), false
+	}
+	// The wall clock of t in w.loc is t shifted by the offset, read in UTC.
+	return appendStamp(b, t.Add(time.Duration(off)*time.Second), false), true
+}
+
+// appendStamp appends t (read in UTC) as "20060102T150405", with a trailing
+// "Z" if utc; the same bytes as t.Format(utcLayout or localLayout) for a
+// four-digit year, which is every year a feed holds (others go through
+// Format).
+func appendStamp(b []byte, t time.Time, utc bool) []byte {
+	t = t.UTC()
+	y, mo, d := t.Date()
+	if y < 0 || y > 9999 {
+		if utc {
+			return t.AppendFormat(b, utcLayout)
+		}
+		return t.AppendFormat(b, localLayout)
+	}
+	h, mi, s := t.Clock()
+	b = append(b, byte('0'+y/1000), byte('0'+y/100%10), byte('0'+y/10%10), byte('0'+y%10),
+		byte('0'+mo/10), byte('0'+mo%10), byte('0'+d/10), byte('0'+d%10), 'T',
+		byte('0'+h/10), byte('0'+h%10), byte('0'+mi/10), byte('0'+mi%10), byte('0'+s/10), byte('0'+s%10))
+	if utc {
+		b = append(b, 'Z')
+	}
+	return b
 }
 
 const (
 	utcLayout   = "20060102T150405Z"
 	localLayout = "20060102T150405"
+	dateLayout  = "20060102"
 )
+
+// offsetSpan is one period [from, to) (Unix seconds) over which a zone keeps
+// the UTC offset off (seconds). Instants before ambBefore or from ambFrom on
+// have a wall clock that repeats (see isAmbiguous). Unbounded ends are
+// math.MinInt64 and math.MaxInt64.
+type offsetSpan struct {
+	from, to           int64
+	off                int64
+	ambBefore, ambFrom int64
+}
+
+// offsetAt returns the offset of w.loc at t (whole seconds) and whether the
+// wall clock of t is ambiguous, with the same result as isAmbiguous. Entries
+// come mostly in time order and a zone changes offset at most a few times a
+// year, so the period found for the previous entry nearly always holds the
+// next one as well: only then are the zone's transitions looked up.
+func (w *writer) offsetAt(t time.Time) (int64, bool) {
+	u := t.Unix()
+	if u < w.span.from || u >= w.span.to {
+		w.span = zoneSpanAt(t, w.loc)
+	}
+	return w.span.off, u < w.span.ambBefore || u >= w.span.ambFrom
+}
+
+// zoneSpanAt returns the offset period of loc that holds t. Its ambiguous
+// ranges restate isAmbiguous's two tests in Unix seconds:
+// t + (off-prev) < start  ⇔  t < start + (prev-off), and
+// t + (off-next) >= end   ⇔  t >= end - (off-next).
+func zoneSpanAt(t time.Time, loc *time.Location) offsetSpan {
+	lt := t.In(loc)
+	_, off := lt.Zone()
+	start, end := lt.ZoneBounds()
+	s := offsetSpan{from: math.MinInt64, to: math.MaxInt64, off: int64(off),
+		ambBefore: math.MinInt64, ambFrom: math.MaxInt64}
+	if !start.IsZero() {
+		s.from = start.Unix()
+		if _, prev := start.Add(-time.Second).In(loc).Zone(); prev > off {
+			s.ambBefore = s.from + int64(prev-off)
+		}
+	}
+	if !end.IsZero() {
+		s.to = end.Unix()
+		if _, next := end.In(loc).Zone(); next < off {
+			s.ambFrom = s.to - int64(off-next)
+		}
+	}
+	return s
+}
 
 // isAmbiguous reports whether the wall clock of t in loc also names another
 // instant: t is in the hour that repeats when clocks go back, either its

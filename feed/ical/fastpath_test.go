@@ -2,8 +2,11 @@ package ical
 
 import (
 	"math/rand"
+	"strings"
 	"testing"
 	"time"
+
+	ics "github.com/arran4/golang-ical"
 )
 
 // TestOffsetAtMatchesZone: the cached offset period gives, for every quarter
@@ -51,6 +54,40 @@ func TestAppendStamp(t *testing.T) {
 		}
 		if got, want := string(appendStamp(nil, at, false)), at.UTC().Format(localLayout); got != want {
 			t.Errorf("%s: %q, want %q", at, got, want)
+		}
+	}
+}
+
+// TestCleanTextFastPath: the clean-text check returns what the full
+// normalisation returns, for texts built from clean and unclean pieces
+// (controls C0 and C1, CR, invalid and truncated UTF-8, U+FFFD itself).
+func TestCleanTextFastPath(t *testing.T) {
+	pieces := []string{"a", "Z", " ", ",", ";", "\\", "\t", "\n", "\r", "\r\n", "\x00", "\x1f", "\x7f", "é",
+		"\u0085", "\u009f", "\u00a0", "\u2028", "日", "🌅", "\uFFFD", "\xff", "\xc3", "\xe6\x97", "\xed\xa0\x80"}
+	r := rand.New(rand.NewSource(2))
+	for range 50000 {
+		var s string
+		for j := r.Intn(8); j > 0; j-- {
+			s += pieces[r.Intn(len(pieces))]
+		}
+		if got, want := cleanText(s), normaliseText(s); got != want {
+			t.Fatalf("cleanText(%q) = %q, want %q", s, got, want)
+		}
+	}
+}
+
+// TestContentLineShort: a line that needs no folding is written as fold
+// would write it, at and around the 75-octet limit.
+func TestContentLineShort(t *testing.T) {
+	cfg := &ics.SerializationConfiguration{MaxLength: 75, NewLine: "\r\n"}
+	for n := 1; n <= 80; n++ {
+		line := "CATEGORIES:" + strings.Repeat("x", n)
+		var b strings.Builder
+		if err := (&contentLine{line: line}).SerializeTo(&b, cfg); err != nil {
+			t.Fatal(err)
+		}
+		if want := fold(line, 75, "\r\n"); b.String() != want {
+			t.Errorf("%d octets: %q, want %q", len(line), b.String(), want)
 		}
 	}
 }

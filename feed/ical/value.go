@@ -18,7 +18,32 @@ import (
 // UTF-8 becomes U+FFFD, CRLF and lone CR become LF (the library's escaping
 // would pass a CR through raw), and every other control character except
 // HTAB is removed. Escaping is left to the serializer.
+//
+// Nearly every text a feed carries is already clean, so one pass first
+// checks that: valid UTF-8 with no control character other than HTAB and LF
+// is exactly the text the full normalisation returns unchanged. ASCII bytes
+// are checked directly; a multi-byte rune is decoded (RuneError of width 1
+// is invalid UTF-8; the only non-ASCII controls are U+0080..U+009F).
 func cleanText(s string) string {
+	for i := 0; i < len(s); {
+		if c := s[i]; c < utf8.RuneSelf {
+			if (c < ' ' && c != '\t' && c != '\n') || c == 0x7f {
+				return normaliseText(s)
+			}
+			i++
+			continue
+		}
+		r, size := utf8.DecodeRuneInString(s[i:])
+		if (r == utf8.RuneError && size == 1) || unicode.IsControl(r) {
+			return normaliseText(s)
+		}
+		i += size
+	}
+	return s
+}
+
+// normaliseText is cleanText for a text that needs changing.
+func normaliseText(s string) string {
 	s = strings.ToValidUTF8(s, "\uFFFD")
 	if strings.IndexFunc(s, func(r rune) bool { return unicode.IsControl(r) && r != '\n' && r != '\t' }) < 0 {
 		return s
@@ -148,6 +173,15 @@ func (l *contentLine) UnknownPropertiesIANAProperties() []ics.IANAProperty { ret
 func (l *contentLine) SubComponents() []ics.Component                      { return nil }
 
 func (l *contentLine) SerializeTo(w io.Writer, cfg *ics.SerializationConfiguration) error {
+	if max := cfg.MaxLength; max >= 5 && len(l.line) <= max {
+		// Short enough not to fold: the same bytes as fold, without
+		// building the folded string.
+		if _, err := io.WriteString(w, l.line); err != nil {
+			return err
+		}
+		_, err := io.WriteString(w, cfg.NewLine)
+		return err
+	}
 	_, err := io.WriteString(w, fold(l.line, cfg.MaxLength, cfg.NewLine))
 	return err
 }

@@ -97,12 +97,12 @@ const instantLength = time.Minute
 
 // Marshal returns c as an iCalendar file.
 func Marshal(c *feed.Calendar, opts Options) ([]byte, error) {
-	cal, err := build(c, opts)
+	cal, size, err := build(c, opts)
 	if err != nil {
 		return nil, err
 	}
 	var b bytes.Buffer
-	b.Grow(4096 + 640*len(c.Entries)) // an event takes 400 to 800 bytes
+	b.Grow(size)
 	if err := cal.SerializeTo(&b, ics.WithNewLineWindows); err != nil {
 		return nil, fmt.Errorf("ical: calendar %q: %w", c.ID, err)
 	}
@@ -185,46 +185,48 @@ func (w *writer) prepare() {
 	w.props = make([]ics.IANAProperty, 0, n*eventProps)
 }
 
-func build(c *feed.Calendar, opts Options) (*ics.Calendar, error) {
+// build returns the calendar of c and the size to reserve for its
+// serialization (see writer.size).
+func build(c *feed.Calendar, opts Options) (*ics.Calendar, int, error) {
 	if c == nil {
-		return nil, fmt.Errorf("ical: nil calendar")
+		return nil, 0, fmt.Errorf("ical: nil calendar")
 	}
 	w := &writer{c: c, stamp: c.Stamp.UTC()}
 	fail := func(format string, args ...any) error {
 		return fmt.Errorf("ical: calendar %q: "+format, append([]any{c.ID}, args...)...)
 	}
 	if c.Stamp.IsZero() {
-		return nil, fail("Stamp is zero (it must be derived from the inputs)")
+		return nil, 0, fail("Stamp is zero (it must be derived from the inputs)")
 	}
 	if c.Refresh < 0 {
-		return nil, fail("Refresh %s is negative", c.Refresh)
+		return nil, 0, fail("Refresh %s is negative", c.Refresh)
 	}
 	if c.Alarm < 0 {
-		return nil, fail("Alarm %s is negative", c.Alarm)
+		return nil, 0, fail("Alarm %s is negative", c.Alarm)
 	}
 	geo, err := formatGeo(c.Site.Latitude, c.Site.Longitude)
 	if err != nil {
-		return nil, fail("site %q: %w", c.Site.ID, err)
+		return nil, 0, fail("site %q: %w", c.Site.ID, err)
 	}
 	w.geo = geo
 	color := strings.ToLower(strings.TrimSpace(c.Color))
 	if color != "" && !cssColors[color] {
-		return nil, fail("Color %q is not a CSS3 colour name (RFC 7986 COLOR)", c.Color)
+		return nil, 0, fail("Color %q is not a CSS3 colour name (RFC 7986 COLOR)", c.Color)
 	}
 	for _, u := range []struct{ field, value string }{{"URL", c.URL}, {"PageURL", c.PageURL}} {
 		if err := checkURI(u.value); err != nil {
-			return nil, fail("%s %q: %w", u.field, u.value, err)
+			return nil, 0, fail("%s %q: %w", u.field, u.value, err)
 		}
 	}
 	loc := c.Site.Location
 	if loc == nil {
-		return nil, fail("site %q has no time zone", c.Site.ID)
+		return nil, 0, fail("site %q has no time zone", c.Site.ID)
 	}
 	if !c.UTC && !isUTC(loc) {
 		w.loc = loc
 		w.tzid = loc.String()
 		if err := checkTZID(w.tzid); err != nil {
-			return nil, fail("site %q: %w", c.Site.ID, err)
+			return nil, 0, fail("site %q: %w", c.Site.ID, err)
 		}
 	}
 	w.prepare()
@@ -273,19 +275,19 @@ func build(c *feed.Calendar, opts Options) (*ics.Calendar, error) {
 	for i := range c.Entries {
 		e := &c.Entries[i]
 		if e.UID == "" {
-			return nil, fail("entry %d (%s %s): empty UID", i, e.Kind, e.Start.Format(time.RFC3339))
+			return nil, 0, fail("entry %d (%s %s): empty UID", i, e.Kind, e.Start.Format(time.RFC3339))
 		}
 		if seen[e.UID] {
-			return nil, fail("entry %d: duplicate UID %q", i, e.UID)
+			return nil, 0, fail("entry %d: duplicate UID %q", i, e.UID)
 		}
 		seen[e.UID] = true
 		ev, err := w.event(i, e)
 		if err != nil {
-			return nil, fail("entry %q: %w", e.UID, err)
+			return nil, 0, fail("entry %q: %w", e.UID, err)
 		}
 		cal.AddVEvent(ev)
 	}
-	return cal, nil
+	return cal, w.size(cal), nil
 }
 
 // zoneSpan is the span the VTIMEZONE must cover: the window and every timed
@@ -317,6 +319,50 @@ func (w *writer) zoneSpan() (from, to time.Time) {
 	from = from.Add(-zoneMargin).In(w.loc)
 	from = time.Date(from.Year(), from.Month(), from.Day(), 0, 0, 0, 0, w.loc)
 	return from.UTC(), to.Add(zoneMargin).UTC()
+}
+
+// size estimates the serialized size of cal, slightly above it, so that the
+// output buffer is allocated once (a short estimate doubles the buffer and
+// copies it; events take 400 to 800 bytes, so no constant per event fits
+// every feed). It adds up the properties' names, parameters and values, the
+// pre-formatted lines and the component delimiters, plus 1/16 for TEXT
+// escaping and line folding (a fold adds 3 octets per 74). Only the
+// allocation depends on it, never the output.
+func (w *writer) size(cal *ics.Calendar) int {
+	n := len("BEGIN:VCALENDAR\r\nEND:VCALENDAR\r\n")
+	for i := range cal.CalendarProperties {
+		n += lineSize(&cal.CalendarProperties[i].BaseProperty)
+	}
+	var walk func(ics.Component)
+	walk = func(c ics.Component) {
+		if l, ok := c.(*contentLine); ok {
+			n += len(l.line) + len("\r\n")
+			return
+		}
+		n += len("BEGIN:VTIMEZONE\r\nEND:VTIMEZONE\r\n") // the longest name
+		for i := range c.UnknownPropertiesIANAProperties() {
+			n += lineSize(&c.UnknownPropertiesIANAProperties()[i].BaseProperty)
+		}
+		for _, sub := range c.SubComponents() {
+			walk(sub)
+		}
+	}
+	for _, c := range cal.Components {
+		walk(c)
+	}
+	return n + n/16
+}
+
+// lineSize is the unfolded, unescaped length of p's content line.
+func lineSize(p *ics.BaseProperty) int {
+	n := len(p.IANAToken) + len(":\r\n") + len(p.Value)
+	for k, vs := range p.ICalParameters {
+		n += len(k) + len(";=")
+		for _, v := range vs {
+			n += len(v) + len(`,""`)
+		}
+	}
+	return n
 }
 
 // event builds the VEVENT of entry i. The properties are the ones the

@@ -155,7 +155,9 @@ type writer struct {
 	span offsetSpan // the last offset period looked up (see offsetAt)
 	buf  []byte     // scratch for formatting an event's date-time values
 
-	// Backing arrays for all events, sliced per event (see event).
+	// Backing arrays for all events, sliced per event (see event): events
+	// holds one VEvent per entry, props the part of the properties' array
+	// not yet used.
 	events []ics.VEvent
 	props  []ics.IANAProperty
 }
@@ -182,7 +184,7 @@ func (w *writer) prepare() {
 	w.span = offsetSpan{from: 1, to: 0} // empty: the first lookup fills it
 	n := len(w.c.Entries)
 	w.events = make([]ics.VEvent, n)
-	w.props = make([]ics.IANAProperty, 0, n*eventProps)
+	w.props = make([]ics.IANAProperty, n*eventProps)
 }
 
 // build returns the calendar of c and the size to reserve for its
@@ -376,8 +378,10 @@ func (w *writer) event(i int, e *feed.Entry) (*ics.VEvent, error) {
 	// The event and its properties live in per-calendar backing arrays. The
 	// properties slice is capped at its length, so anything appending to it
 	// later reallocates instead of overwriting the next event's properties.
+	// (Were an event to get more than eventProps properties, append would
+	// move them to an array of their own: still correct, only slower.)
 	ev := &w.events[i]
-	props := w.props[len(w.props):len(w.props)]
+	props := w.props[:0]
 	props = append(props, property(ics.ComponentPropertyUniqueId, e.UID, nil))
 	// DTSTAMP is the calendar's deterministic stamp, in UTC.
 	props = append(props, property(ics.ComponentPropertyDtstamp, w.stampValue, nil))
@@ -441,7 +445,7 @@ func (w *writer) event(i int, e *feed.Entry) (*ics.VEvent, error) {
 		property(ics.ComponentPropertySequence, "0", nil),
 		property(ics.ComponentPropertyLastModified, w.stampValue, nil))
 	ev.Properties = props[:len(props):len(props)]
-	w.props = w.props[:len(w.props)+len(props)]
+	w.props = w.props[min(len(props), len(w.props)):]
 
 	// Pre-formatted lines come after the library's properties and before any
 	// VALARM (RFC 5545 §3.6.1: alarms follow the event's properties).

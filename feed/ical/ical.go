@@ -101,9 +101,10 @@ func Marshal(c *feed.Calendar, opts Options) ([]byte, error) {
 	if err != nil {
 		return nil, err
 	}
-	var b bytes.Buffer
-	b.Grow(size)
-	if err := cal.SerializeTo(&b, ics.WithNewLineWindows); err != nil {
+	// make, unlike bytes.Buffer.Grow, does not clear memory fresh from the
+	// operating system (Grow always zeroes the whole new capacity).
+	b := bytes.NewBuffer(make([]byte, 0, size))
+	if err := cal.SerializeTo(b, ics.WithNewLineWindows); err != nil {
 		return nil, fmt.Errorf("ical: calendar %q: %w", c.ID, err)
 	}
 	return b.Bytes(), nil

@@ -343,8 +343,9 @@ func (w *writer) size(cal *ics.Calendar) int {
 			return
 		}
 		n += len("BEGIN:VTIMEZONE\r\nEND:VTIMEZONE\r\n") // the longest name
-		for i := range c.UnknownPropertiesIANAProperties() {
-			n += lineSize(&c.UnknownPropertiesIANAProperties()[i].BaseProperty)
+		props := c.UnknownPropertiesIANAProperties()
+		for i := range props {
+			n += lineSize(&props[i].BaseProperty)
 		}
 		for _, sub := range c.SubComponents() {
 			walk(sub)
@@ -359,6 +360,9 @@ func (w *writer) size(cal *ics.Calendar) int {
 // lineSize is the unfolded, unescaped length of p's content line.
 func lineSize(p *ics.BaseProperty) int {
 	n := len(p.IANAToken) + len(":\r\n") + len(p.Value)
+	if len(p.ICalParameters) == 0 {
+		return n // most properties: skip starting a map iteration
+	}
 	for k, vs := range p.ICalParameters {
 		n += len(k) + len(";=")
 		for _, v := range vs {

@@ -52,17 +52,18 @@ func siteYear(tb testing.TB, zone string) *feed.Calendar {
 //
 // Measured on a shared, loaded 2-core machine, before and after building the
 // events' properties directly (shared parameter maps, per-calendar constants,
-// cached zone periods, clean-text fast path, sized output buffer), both
-// binaries run alternately with `go test ./feed/ical -run '^$' -bench Marshal
-// -benchtime 10x -count 3`, output byte-identical:
+// cached zone periods, clean-text fast path, sized output buffer), the two
+// test binaries run alternately, twice each, with `go test ./feed/ical
+// -run '^$' -bench Marshal -benchtime 10x -count 3`; the output is
+// byte-identical:
 //
-//	before: 9.1-12.1 µs/event, 77 allocs/event, 5.1 kB/event allocated
-//	after:  5.0-7.0 µs/event,  46 allocs/event, 2.7 kB/event allocated
+//	before: 8.7-11.4 µs/event, 77 allocs/event, 5.1 kB/event allocated
+//	after:  5.0-6.8 µs/event,  46 allocs/event, 2.7 kB/event allocated
 //
-// Building the events now takes about an eighth of the time; what is left is
-// golang-ical's serialization (41 of the 46 allocations: it builds each
-// content line in a fresh strings.Builder) and the garbage collector
-// recycling that memory. With GOGC=400 the same run gives 3.1-4.8 µs/event.
+// Building the events now takes 1.0-1.5 µs/event; the rest is golang-ical's
+// serialization alone, 4.2-4.7 µs/event (45 of the 46 allocations: it builds
+// every content line in a fresh strings.Builder), and its garbage. With
+// GOGC=400 the same run gives 3.3-5.8 µs/event.
 func BenchmarkMarshal(b *testing.B) {
 	c := siteYear(b, "Europe/Vienna")
 	b.ReportAllocs()

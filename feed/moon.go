@@ -196,7 +196,7 @@ func describeMoon(s *siteInfo, e Event) (string, string) {
 			"full-moon":     "the Moon is opposite the Sun, fully lit, and up all night",
 			"last-quarter":  "the Moon is 90° west of the Sun, half lit, and rises around midnight",
 		}[e.Kind.Name]
-		fmt.Fprintf(&b, "%s at %s (%s UTC): %s.", title, at, e.Start.UTC().Format("2006-01-02 15:04:05"), meaning)
+		fmt.Fprintf(&b, "%s at %s (%s UTC): %s.", title, at, e.Start.UTC().Round(time.Second).Format("2006-01-02 15:04:05"), meaning)
 	case "moonrise", "moonset":
 		title = fmt.Sprintf("%s (%s, %s lit)", title, waxing(e), percent(e.Illuminated))
 		fmt.Fprintf(&b, "%s at %s, %s: the Moon is %s, %s lit.\nUpper limb of the Moon on the horizon with standard refraction, seen from the site.",

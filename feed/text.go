@@ -214,11 +214,11 @@ func describe(s *siteInfo, e Event) (string, string) {
 	case "march-equinox", "june-solstice", "september-equinox", "december-solstice":
 		season := seasonStarted(e.Kind.Name, s.Latitude)
 		fmt.Fprintf(&b, "%s at %s (%s UTC).\nStart of astronomical %s in the %s hemisphere; it lasts %s, until the next equinox or solstice.",
-			title, at, e.Start.UTC().Format("2006-01-02 15:04:05"), season, hemisphere(s.Latitude), days(e.SeasonLength))
+			title, at, e.Start.UTC().Round(time.Second).Format("2006-01-02 15:04:05"), season, hemisphere(s.Latitude), days(e.SeasonLength))
 		title = fmt.Sprintf("%s: %s begins", title, capital(season))
 	case "cross-quarter":
 		fmt.Fprintf(&b, "Cross-quarter day at %s (%s UTC): the Sun reaches ecliptic longitude %s°, midway between %s.\n"+
-			"Farm calendars mark these quarter points of the seasons.", at, e.Start.UTC().Format("2006-01-02 15:04:05"), e.Part, crossQuarterBetween[e.Part])
+			"Farm calendars mark these quarter points of the seasons.", at, e.Start.UTC().Round(time.Second).Format("2006-01-02 15:04:05"), e.Part, crossQuarterBetween[e.Part])
 	case "perihelion", "aphelion":
 		near := "closest to"
 		if e.Kind.Name == "aphelion" {
@@ -229,9 +229,9 @@ func describe(s *siteInfo, e Event) (string, string) {
 			e.Start.UTC().Format("2006-01-02 15:04"), e.Distance, thousands(e.Distance*149597870.7))
 	case "photoperiod":
 		if e.Direction == astro.Rising {
-			title = fmt.Sprintf("Day length reaches %s", hm(e.Kind.DayLength))
+			title = fmt.Sprintf("Day length reaches %s", amount(e.Kind.DayLength))
 		} else {
-			title = fmt.Sprintf("Day length falls below %s", hm(e.Kind.DayLength))
+			title = fmt.Sprintf("Day length falls below %s", amount(e.Kind.DayLength))
 		}
 		fmt.Fprintf(&b, "%s today at %s: the Sun is up for %s (%s on the day before).\n"+
 			"Lighting programs for greenhouses and livestock switch on this threshold.",

@@ -124,10 +124,9 @@ func Encode(w io.Writer, c *feed.Calendar, opts Options) error {
 }
 
 // writer holds what every event of one calendar shares. Besides the inputs
-// it keeps the values and parameter maps that are the same for every event,
-// computed once per calendar (see prepare), so that an event costs little
-// more than its own strings: the write of a site-year is dominated by the
-// library's serialization, not by building the events.
+// it keeps the values that are the same for every event, computed once per
+// calendar (see prepare) and, once serialization starts, their content lines
+// (see eventLines), so that an event costs little more than its own strings.
 type writer struct {
 	c     *feed.Calendar
 	loc   *time.Location // nil: write UTC
@@ -139,53 +138,60 @@ type writer struct {
 	location   string // LOCATION value (cleaned site name), "" for none
 	trigger    string // VALARM TRIGGER value
 
-	// Parameter maps shared by the properties of all events of this
-	// calendar. Sharing is safe: golang-ical only reads ICalParameters when
-	// serializing, nothing here mutates them after prepare, and the
-	// calendar never leaves Marshal (SetProperty, were it called, would
-	// assign a fresh map rather than modify the shared one).
-	dateParams map[string][]string // VALUE=DATE
-	tzidParams map[string][]string // TZID=<tzid>; nil when the TZID needs DQUOTEs
-	tzidInLine string              // ";TZID=<quoted tzid>:" for pre-formatted lines
+	// tzidParam is ";TZID=<tzid>" as the library writes the parameter;
+	// "" when the TZID needs DQUOTEs, which the library cannot write:
+	// then local times are pre-formatted lines with tzidInLine,
+	// ";TZID=<quoted tzid>:".
+	tzidParam  string
+	tzidInLine string
 
 	// cats caches the CATEGORIES line per distinct list of categories (a
 	// feed has a handful: one per kind); catKey is the scratch lookup key.
-	cats   map[string][]ics.Component
+	cats   map[string]*contentLine
 	catKey []byte
 
 	span offsetSpan // the last offset period looked up (see offsetAt)
-	buf  []byte     // scratch for formatting an event's date-time values
 
-	// Backing arrays for all events, sliced per event (see event): events
-	// holds one VEvent per entry, props the part of the properties' array
-	// not yet used.
-	events []ics.VEvent
-	props  []ics.IANAProperty
+	// events is the backing array of the calendar's events, one per entry.
+	events []vevent
+
+	// Serialization state (see vevent.SerializeTo): the configuration, the
+	// shared lines rendered for it, the event's output and a scratch copy
+	// of a line being folded, both reused from event to event.
+	cfg          *ics.SerializationConfiguration
+	lines        eventLines
+	out, scratch []byte
+
+	// eventSize and alarmSize are the sizes of an event's and an alarm's
+	// fixed parts, for size.
+	eventSize, alarmSize int
 }
-
-// eventProps is the most properties an event gets: UID, DTSTAMP, DTSTART,
-// DTEND, SUMMARY, DESCRIPTION, LOCATION, GEO, TRANSP,
-// X-MICROSOFT-CDO-BUSYSTATUS, SEQUENCE, LAST-MODIFIED.
-const eventProps = 12
 
 // prepare computes the per-calendar values of w, once its inputs are checked.
 func (w *writer) prepare() {
 	w.stampValue = w.stamp.Format(utcLayout)
 	w.location = cleanText(w.c.Site.Name)
 	w.trigger = "-" + formatDuration(w.c.Alarm)
-	w.dateParams = map[string][]string{string(ics.ParameterValue): {string(ics.ValueDataTypeDate)}}
 	if w.loc != nil {
 		if libraryParamSafe(w.tzid) {
-			w.tzidParams = map[string][]string{string(ics.ParameterTzid): {w.tzid}}
+			w.tzidParam = ";" + string(ics.ParameterTzid) + "=" + w.tzid
 		} else {
 			w.tzidInLine = ";TZID=" + paramValue(w.tzid) + ":"
 		}
 	}
-	w.cats = make(map[string][]ics.Component)
+	w.cats = make(map[string]*contentLine)
 	w.span = offsetSpan{from: 1, to: 0} // empty: the first lookup fills it
-	n := len(w.c.Entries)
-	w.events = make([]ics.VEvent, n)
-	w.props = make([]ics.IANAProperty, n*eventProps)
+	w.events = make([]vevent, len(w.c.Entries))
+
+	// The fixed parts' sizes, from the lines as Marshal renders them;
+	// serialization renders them again for its own configuration.
+	w.setLines(&ics.SerializationConfiguration{MaxLength: 75, NewLine: "\r\n"})
+	l := &w.lines
+	timeLine := len("DTSTART;TZID=\"\":20060102T150405Z\r\n") + len(w.tzid)
+	w.eventSize = len(l.begin) + len(l.end) + len(l.stamp) + len(l.tail) + 2*timeLine +
+		len("UID:\r\nSUMMARY:\r\nDESCRIPTION:\r\n\r\n") // the last "\r\n": CATEGORIES
+	w.alarmSize = len(l.alarmHead) + len(l.alarmTail) + len("DESCRIPTION:\r\n")
+	w.lines = eventLines{}
 }
 
 // build returns the calendar of c and the size to reserve for its
@@ -288,7 +294,7 @@ func build(c *feed.Calendar, opts Options) (*ics.Calendar, int, error) {
 		if err != nil {
 			return nil, 0, fail("entry %q: %w", e.UID, err)
 		}
-		cal.AddVEvent(ev)
+		cal.Components = append(cal.Components, ev)
 	}
 	return cal, w.size(cal), nil
 }
@@ -338,8 +344,8 @@ func (w *writer) size(cal *ics.Calendar) int {
 	}
 	var walk func(ics.Component)
 	walk = func(c ics.Component) {
-		if l, ok := c.(*contentLine); ok {
-			n += len(l.line) + len("\r\n")
+		if ev, ok := c.(*vevent); ok {
+			n += ev.size()
 			return
 		}
 		n += len("BEGIN:VTIMEZONE\r\nEND:VTIMEZONE\r\n") // the longest name
@@ -372,25 +378,13 @@ func lineSize(p *ics.BaseProperty) int {
 	return n
 }
 
-// event builds the VEVENT of entry i. The properties are the ones the
-// library's setters would write (SetDtStampTime, SetAllDayStartAt,
-// SetSummary, ...), in the same order with the same values and parameters,
-// but appended directly: every property is set exactly once, so the
-// setters' replace-scan (SetProperty) finds nothing to replace, and a
-// property without parameters needs no map (the library serializes a nil
-// ICalParameters like an empty one).
-func (w *writer) event(i int, e *feed.Entry) (*ics.VEvent, error) {
-	// The event and its properties live in per-calendar backing arrays. The
-	// properties slice is capped at its length, so anything appending to it
-	// later reallocates instead of overwriting the next event's properties.
-	// (Were an event to get more than eventProps properties, append would
-	// move them to an array of their own: still correct, only slower.)
+// event checks entry i and sets up its VEVENT (see vevent), which holds the
+// entry's own values: its times, rounded to whole seconds (an instant gets
+// instantLength), and its cleaned texts. The date-time values are formatted
+// when the event is written.
+func (w *writer) event(i int, e *feed.Entry) (*vevent, error) {
 	ev := &w.events[i]
-	props := w.props[:0]
-	props = append(props, property(ics.ComponentPropertyUniqueId, e.UID, nil))
-	// DTSTAMP is the calendar's deterministic stamp, in UTC.
-	props = append(props, property(ics.ComponentPropertyDtstamp, w.stampValue, nil))
-	var extra []ics.Component // pre-formatted lines, see contentLine
+	*ev = vevent{w: w, uid: e.UID, allDay: e.AllDay}
 	if e.AllDay {
 		start := dateOf(e.Start)
 		end := start.AddDate(0, 0, 1)
@@ -401,17 +395,8 @@ func (w *writer) event(i int, e *feed.Entry) (*ics.VEvent, error) {
 			return nil, fmt.Errorf("all-day end %s is not after start %s",
 				end.Format(time.DateOnly), start.Format(time.DateOnly))
 		}
-		// DTSTART;VALUE=DATE and the exclusive DTEND;VALUE=DATE, as
-		// SetAllDayStartAt/SetAllDayEndAt write them; both values share one
-		// string allocation.
-		b := start.AppendFormat(w.buf[:0], dateLayout)
-		n := len(b)
-		b = end.AppendFormat(b, dateLayout)
-		vals := string(b)
-		w.buf = b
-		props = append(props,
-			property(ics.ComponentPropertyDtStart, vals[:n], w.dateParams),
-			property(ics.ComponentPropertyDtEnd, vals[n:], w.dateParams))
+		// DTSTART;VALUE=DATE and the exclusive DTEND;VALUE=DATE.
+		ev.start, ev.end = start, end
 	} else {
 		if e.Start.IsZero() {
 			return nil, fmt.Errorf("timed entry has no Start")
@@ -425,75 +410,22 @@ func (w *writer) event(i int, e *feed.Entry) (*ics.VEvent, error) {
 		if !end.After(start) {
 			end = start.Add(instantLength)
 		}
-		b, startLocal := w.appendTime(w.buf[:0], start)
-		n := len(b)
-		b, endLocal := w.appendTime(b, end)
-		vals := string(b)
-		w.buf = b
-		props, extra = w.timeProp(props, extra, ics.ComponentPropertyDtStart, vals[:n], startLocal)
-		props, extra = w.timeProp(props, extra, ics.ComponentPropertyDtEnd, vals[n:], endLocal)
+		ev.start, ev.end = start, end
 	}
-	title := cleanText(e.Title)
-	if title != "" {
-		props = append(props, property(ics.ComponentPropertySummary, title, nil))
-	}
-	if d := cleanText(e.Description); d != "" {
-		props = append(props, property(ics.ComponentPropertyDescription, d, nil))
-	}
-	if w.location != "" {
-		props = append(props, property(ics.ComponentPropertyLocation, w.location, nil))
-	}
-	props = append(props,
-		property(ics.ComponentPropertyGeo, w.geo, nil), // FLOAT: not escaped
-		property(ics.ComponentPropertyTransp, string(ics.TransparencyTransparent), nil),
-		property("X-MICROSOFT-CDO-BUSYSTATUS", "FREE", nil),
-		property(ics.ComponentPropertySequence, "0", nil),
-		property(ics.ComponentPropertyLastModified, w.stampValue, nil))
-	ev.Properties = props[:len(props):len(props)]
-	w.props = w.props[min(len(props), len(w.props)):]
-
-	// Pre-formatted lines come after the library's properties and before any
-	// VALARM (RFC 5545 §3.6.1: alarms follow the event's properties).
-	cats := w.categoriesLine(e.Categories)
-	alarm := w.c.Alarm > 0 && !e.AllDay
-	if extra == nil && !alarm {
-		// The shared slice is capped at its length (see categoriesLine):
-		// an append to ev.Components cannot write into it.
-		ev.Components = cats
-		return ev, nil
-	}
-	comps := make([]ics.Component, 0, len(extra)+len(cats)+1) // +1: the VALARM
-	ev.Components = append(append(comps, extra...), cats...)
-	if alarm {
-		desc := title
-		if desc == "" {
-			desc = "Reminder"
-		}
-		a := &ics.VAlarm{}
-		a.Properties = []ics.IANAProperty{
-			property(ics.ComponentPropertyAction, string(ics.ActionDisplay), nil),
-			property(ics.ComponentPropertyDescription, desc, nil), // required for DISPLAY
-			property(ics.ComponentPropertyTrigger, w.trigger, nil),
-		}
-		ev.Components = append(ev.Components, a)
-	}
+	ev.title = cleanText(e.Title)
+	ev.desc = cleanText(e.Description)
+	ev.cats = w.categoriesLine(e.Categories)
+	ev.alarm = w.c.Alarm > 0 && !e.AllDay
 	return ev, nil
 }
 
-// property is one property as the library's AddProperty builds it, with params
-// shared rather than copied (nil for none).
-func property(name ics.ComponentProperty, value string, params map[string][]string) ics.IANAProperty {
-	return ics.IANAProperty{BaseProperty: ics.BaseProperty{IANAToken: string(name), Value: value, ICalParameters: params}}
-}
-
-// categoriesLine returns the CATEGORIES line of cats as a one-element
-// component slice (nil when no category is left after cleaning), built once
-// per distinct list and capped at its length so that it can be shared.
+// categoriesLine returns the CATEGORIES line of cats (nil when no category
+// is left after cleaning), built once per distinct list.
 //
 // CATEGORIES is a list of TEXT values on one line: the commas between values
 // must stay as they are, commas inside a value are escaped. The library would
 // escape the separators too, so the line is written pre-formatted.
-func (w *writer) categoriesLine(cats []string) []ics.Component {
+func (w *writer) categoriesLine(cats []string) *contentLine {
 	// The key holds each value prefixed with its length, so that two
 	// different lists never share a key; the map lookup with string(key)
 	// does not allocate.
@@ -506,26 +438,12 @@ func (w *writer) categoriesLine(cats []string) []ics.Component {
 	if line, ok := w.cats[string(key)]; ok {
 		return line
 	}
-	var line []ics.Component
+	var line *contentLine
 	if v := categories(cats); v != "" {
-		line = []ics.Component{&contentLine{line: "CATEGORIES:" + v}}
+		line = &contentLine{line: "CATEGORIES:" + v}
 	}
 	w.cats[string(key)] = line
 	return line
-}
-
-// timeProp adds DTSTART or DTEND with the value formatted by appendTime: in
-// UTC, or local with TZID. When the TZID needs DQUOTEs the property becomes a
-// pre-formatted line instead, as the library would backslash-escape it.
-func (w *writer) timeProp(props []ics.IANAProperty, extra []ics.Component, name ics.ComponentProperty, value string, local bool) ([]ics.IANAProperty, []ics.Component) {
-	switch {
-	case !local:
-		return append(props, property(name, value, nil)), extra
-	case w.tzidParams != nil:
-		return append(props, property(name, value, w.tzidParams)), extra
-	default:
-		return props, append(extra, &contentLine{line: string(name) + w.tzidInLine + value})
-	}
 }
 
 // appendTime appends the DTSTART or DTEND value of a timed entry at t (UTC,

@@ -182,7 +182,7 @@ func (l *contentLine) SerializeTo(w io.Writer, cfg *ics.SerializationConfigurati
 		_, err := io.WriteString(w, cfg.NewLine)
 		return err
 	}
-	_, err := io.WriteString(w, fold(l.line, cfg.MaxLength, cfg.NewLine))
+	_, err := w.Write(appendFold(nil, l.line, cfg.MaxLength, cfg.NewLine))
 	return err
 }
 
@@ -190,25 +190,25 @@ func (l *contentLine) SerializeTo(w io.Writer, cfg *ics.SerializationConfigurati
 // (RFC 5545 §3.1), each continuation starting with one space, breaking only
 // between UTF-8 sequences; every physical line ends with newline.
 func fold(s string, max int, newline string) string {
+	return string(appendFold(nil, s, max, newline))
+}
+
+// appendFold appends fold(s, max, newline) to b.
+func appendFold[S string | []byte](b []byte, s S, max int, newline string) []byte {
 	if max < 5 {
 		max = 75
 	}
-	var b strings.Builder
 	limit := max
 	for len(s) > limit {
 		cut := limit
 		for cut > 0 && !utf8.RuneStart(s[cut]) {
 			cut--
 		}
-		b.WriteString(s[:cut])
-		b.WriteString(newline)
-		b.WriteByte(' ')
+		b = append(append(append(b, s[:cut]...), newline...), ' ')
 		s = s[cut:]
 		limit = max - 1
 	}
-	b.WriteString(s)
-	b.WriteString(newline)
-	return b.String()
+	return append(append(b, s...), newline...)
 }
 
 // formatOffset writes a UTC offset in seconds as RFC 5545 §3.3.14

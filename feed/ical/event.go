@@ -1,0 +1,284 @@
+package ical
+
+import (
+	"io"
+	"time"
+	"unicode/utf8"
+
+	ics "github.com/arran4/golang-ical"
+)
+
+// vevent is one VEVENT, with its VALARM if any, as a golang-ical Component
+// that writes its own content lines. The calendar (header, VTIMEZONE,
+// component order, the SerializeTo entry point) stays golang-ical's; only
+// the events bypass the library's per-property serializer, which builds
+// every content line in a fresh strings.Builder, escapes TEXT through a
+// strings.Replacer and folds by slicing strings: measured at 4.2-4.7 µs and
+// 45 allocations per event, about 40% of the CPU of publishing a thousand
+// feeds (see BenchmarkMarshal). SerializeTo writes the same bytes with one
+// reused buffer and no allocation: the same properties in the same order
+// (those the library's setters wrote: NewEvent, SetDtStampTime,
+// SetAllDayStartAt or SetProperty with TZID, SetSummary, SetDescription,
+// SetLocation, GEO, SetTimeTransparency, X-MICROSOFT-CDO-BUSYSTATUS,
+// SetSequence, SetLastModifiedAt, then the pre-formatted lines and the
+// VALARM), the library's TEXT escaping (escapeText) and its folding
+// (libraryFold), and the pre-formatted lines folded as contentLine folds
+// them. TestMarshalMatchesReference and FuzzMarshalMatchesReference hold
+// the output byte-identical to the library's own serialization of the same
+// event (reference_test.go).
+type vevent struct {
+	w          *writer
+	uid        string
+	title      string       // cleaned SUMMARY, "" for none
+	desc       string       // cleaned DESCRIPTION, "" for none
+	cats       *contentLine // the CATEGORIES line, nil for none
+	start, end time.Time    // UTC, whole seconds; all-day: the dates at 00:00
+	allDay     bool
+	alarm      bool
+}
+
+var _ ics.Component = (*vevent)(nil)
+
+func (ev *vevent) UnknownPropertiesIANAProperties() []ics.IANAProperty { return nil }
+func (ev *vevent) SubComponents() []ics.Component                      { return nil }
+
+// eventLines are the content lines shared by every event of a calendar,
+// rendered (folded, with newlines) for one serialization configuration.
+type eventLines struct {
+	max     int    // cfg.MaxLength they were rendered for
+	newline string // cfg.NewLine they were rendered for
+
+	begin, end []byte // BEGIN:VEVENT, END:VEVENT
+	stamp      []byte // DTSTAMP
+	// tail: LOCATION, GEO, TRANSP, X-MICROSOFT-CDO-BUSYSTATUS, SEQUENCE,
+	// LAST-MODIFIED.
+	tail []byte
+	// alarmHead is BEGIN:VALARM and ACTION, alarmTail TRIGGER and
+	// END:VALARM; the alarm's DESCRIPTION goes between them.
+	alarmHead, alarmTail []byte
+}
+
+// setLines renders w.lines for cfg unless they already are.
+func (w *writer) setLines(cfg *ics.SerializationConfiguration) {
+	l := &w.lines
+	if l.begin != nil && l.max == cfg.MaxLength && l.newline == cfg.NewLine {
+		return
+	}
+	w.cfg = cfg
+	*l = eventLines{max: cfg.MaxLength, newline: cfg.NewLine}
+	l.begin = append([]byte("BEGIN:VEVENT"), cfg.NewLine...)
+	l.end = append([]byte("END:VEVENT"), cfg.NewLine...)
+	l.stamp = w.plainLine(nil, "DTSTAMP:", w.stampValue)
+	if w.location != "" {
+		l.tail = w.textLine(l.tail, "LOCATION:", w.location)
+	}
+	l.tail = w.plainLine(l.tail, "GEO:", w.geo) // FLOAT: not escaped
+	l.tail = w.textLine(l.tail, "TRANSP:", string(ics.TransparencyTransparent))
+	l.tail = w.textLine(l.tail, "X-MICROSOFT-CDO-BUSYSTATUS:", "FREE") // unknown to the library: TEXT
+	l.tail = w.plainLine(l.tail, "SEQUENCE:", "0")
+	l.tail = w.plainLine(l.tail, "LAST-MODIFIED:", w.stampValue)
+	l.alarmHead = append([]byte("BEGIN:VALARM"), cfg.NewLine...)
+	l.alarmHead = w.textLine(l.alarmHead, "ACTION:", string(ics.ActionDisplay))
+	l.alarmTail = w.plainLine(nil, "TRIGGER:", w.trigger)
+	l.alarmTail = append(append(l.alarmTail, "END:VALARM"...), cfg.NewLine...)
+}
+
+// SerializeTo writes the event's content lines to out in one Write.
+func (ev *vevent) SerializeTo(out io.Writer, cfg *ics.SerializationConfiguration) error {
+	w := ev.w
+	w.setLines(cfg)
+	b := append(w.out[:0], w.lines.begin...)
+	b = w.textLine(b, "UID:", ev.uid)
+	b = append(b, w.lines.stamp...)
+
+	// DTSTART and DTEND. A local time whose TZID the library would
+	// backslash-escape is a pre-formatted line after the properties
+	// (deferred here), as timeProp placed it.
+	var times [2 * len("20060102T150405Z")]byte
+	var local [2]bool
+	tv := times[:0]
+	var n int
+	if ev.allDay {
+		tv = ev.start.AppendFormat(tv, dateLayout)
+		n = len(tv)
+		tv = ev.end.AppendFormat(tv, dateLayout)
+	} else {
+		tv, local[0] = w.appendTime(tv, ev.start)
+		n = len(tv)
+		tv, local[1] = w.appendTime(tv, ev.end)
+	}
+	values := [2][]byte{tv[:n], tv[n:]}
+	names := [2]string{"DTSTART", "DTEND"}
+	deferred := [2]bool{}
+	for i, v := range values {
+		start := len(b)
+		b = append(b, names[i]...)
+		switch {
+		case ev.allDay:
+			b = append(b, ";VALUE=DATE"...)
+		case local[i] && w.tzidParam == "":
+			deferred[i] = true
+			b = b[:start]
+			continue
+		case local[i]:
+			b = append(b, w.tzidParam...)
+		}
+		b = append(append(b, ':'), v...)
+		b = w.endLine(b, start)
+	}
+
+	if ev.title != "" {
+		b = w.textLine(b, "SUMMARY:", ev.title)
+	}
+	if ev.desc != "" {
+		b = w.textLine(b, "DESCRIPTION:", ev.desc)
+	}
+	b = append(b, w.lines.tail...)
+	for i, v := range values {
+		if deferred[i] {
+			start := len(b)
+			b = append(append(append(b, names[i]...), w.tzidInLine...), v...)
+			b = w.endRawLine(b, start)
+		}
+	}
+	if ev.cats != nil {
+		start := len(b)
+		b = w.endRawLine(append(b, ev.cats.line...), start)
+	}
+	if ev.alarm {
+		b = append(b, w.lines.alarmHead...)
+		desc := ev.title // required for DISPLAY
+		if desc == "" {
+			desc = "Reminder"
+		}
+		b = w.textLine(b, "DESCRIPTION:", desc)
+		b = append(b, w.lines.alarmTail...)
+	}
+	b = append(b, w.lines.end...)
+	w.out = b
+	_, err := out.Write(b)
+	return err
+}
+
+// size is an estimate of the event's serialized size (see writer.size).
+func (ev *vevent) size() int {
+	w := ev.w
+	n := w.eventSize + len(ev.uid) + len(ev.title) + len(ev.desc)
+	if ev.cats != nil {
+		n += len(ev.cats.line)
+	}
+	if ev.alarm {
+		n += w.alarmSize + max(len(ev.title), len("Reminder"))
+	}
+	return n
+}
+
+// plainLine appends the content line prefix+value ("NAME:" or
+// "NAME;PARAM=V:" as prefix), value unescaped, folded as the library folds.
+func (w *writer) plainLine(b []byte, prefix, value string) []byte {
+	start := len(b)
+	b = append(append(b, prefix...), value...)
+	return w.endLine(b, start)
+}
+
+// textLine is plainLine for a TEXT value, escaped as the library escapes it.
+func (w *writer) textLine(b []byte, prefix, value string) []byte {
+	start := len(b)
+	b = escapeText(append(b, prefix...), value)
+	return w.endLine(b, start)
+}
+
+// endLine ends the unfolded content line b[start:] as the library's
+// BaseProperty.SerializeTo does: folded by libraryFold when it is longer
+// than cfg.MaxLength, then the newline.
+func (w *writer) endLine(b []byte, start int) []byte {
+	if len(b)-start <= w.cfg.MaxLength {
+		return append(b, w.cfg.NewLine...)
+	}
+	w.scratch = append(w.scratch[:0], b[start:]...)
+	return libraryFold(b[:start], w.scratch, w.cfg.MaxLength, w.cfg.NewLine)
+}
+
+// endRawLine ends the unfolded pre-formatted line b[start:] as
+// contentLine.SerializeTo does.
+func (w *writer) endRawLine(b []byte, start int) []byte {
+	if max := w.cfg.MaxLength; max >= 5 && len(b)-start <= max {
+		return append(b, w.cfg.NewLine...)
+	}
+	w.scratch = append(w.scratch[:0], b[start:]...)
+	return appendFold(b[:start], w.scratch, w.cfg.MaxLength, w.cfg.NewLine)
+}
+
+// escapeText appends s with the TEXT escaping of golang-ical's ToText
+// (RFC 5545 §3.3.11): backslash, semicolon and comma get a backslash, a
+// newline becomes `\n`; nothing else changes.
+func escapeText(b []byte, s string) []byte {
+	from := 0
+	for i := 0; i < len(s); i++ {
+		var esc byte
+		switch s[i] {
+		case '\\', ';', ',':
+			esc = s[i]
+		case '\n':
+			esc = 'n'
+		default:
+			continue
+		}
+		b = append(append(b, s[from:i]...), '\\', esc)
+		from = i + 1
+	}
+	return append(b, s[from:]...)
+}
+
+// libraryFold appends the content line s folded as golang-ical v0.3.4's
+// BaseProperty.SerializeTo folds it when it is longer than max: a first
+// physical line of at most max octets, then continuation lines of one space
+// and at most max-1 octets, each cut where libraryCut says, every physical
+// line ending with newline.
+func libraryFold(b, s []byte, max int, newline string) []byte {
+	if len(s) > max {
+		n := libraryCut(max, s)
+		b = append(append(b, s[:n]...), newline...)
+		s = s[n:]
+		for len(s) > max-1 {
+			n := libraryCut(max-1, s)
+			if n == 0 {
+				// The library would loop here for ever (a rune longer
+				// than max-1 octets); never with max 75.
+				_, n = utf8.DecodeRune(s)
+			}
+			b = append(append(append(b, ' '), s[:n]...), newline...)
+			s = s[n:]
+		}
+		b = append(b, ' ')
+	}
+	return append(append(b, s...), newline...)
+}
+
+// libraryCut is the length of the first physical line golang-ical's
+// trimUT8StringUpTo cuts from s for at most max octets: it walks the runes
+// while their lengths (utf8.RuneLen, so 3 for each invalid byte) add up to
+// at most max, and prefers the last word boundary seen on the way (before a
+// space or "<", after a ">"), the rune that overflows included, if it is
+// not at the start.
+func libraryCut(max int, s []byte) int {
+	length, boundary := 0, -1
+	var last rune
+	for i, r := range string(s) { // no allocation: the compiler ranges over s
+		if r == ' ' || r == '<' {
+			boundary = i
+		} else if last == '>' {
+			boundary = i
+		}
+		last = r
+		n := length + utf8.RuneLen(r)
+		if n > max {
+			break
+		}
+		length = n
+	}
+	if boundary > 0 {
+		return boundary
+	}
+	return length
+}

@@ -215,13 +215,8 @@ func (w *writer) endRawLine(b []byte, start int) []byte {
 func escapeText(b []byte, s string) []byte {
 	from := 0
 	for i := 0; i < len(s); i++ {
-		var esc byte
-		switch s[i] {
-		case '\\', ';', ',':
-			esc = s[i]
-		case '\n':
-			esc = 'n'
-		default:
+		esc := textEscapes[s[i]]
+		if esc == 0 {
 			continue
 		}
 		b = append(append(b, s[from:i]...), '\\', esc)
@@ -229,6 +224,10 @@ func escapeText(b []byte, s string) []byte {
 	}
 	return append(b, s[from:]...)
 }
+
+// textEscapes maps each byte escapeText escapes to the byte after the
+// backslash; 0 for the others.
+var textEscapes = [256]byte{'\\': '\\', ';': ';', ',': ',', '\n': 'n'}
 
 // libraryFold appends the content line s folded as golang-ical v0.3.4's
 // BaseProperty.SerializeTo folds it when it is longer than max: a first
@@ -264,7 +263,12 @@ func libraryFold(b, s []byte, max int, newline string) []byte {
 func libraryCut(max int, s []byte) int {
 	length, boundary := 0, -1
 	var last rune
-	for i, r := range string(s) { // no allocation: the compiler ranges over s
+	for i := 0; i < len(s); {
+		// What ranging over string(s) gives, without converting.
+		r, size := rune(s[i]), 1
+		if r >= utf8.RuneSelf {
+			r, size = utf8.DecodeRune(s[i:])
+		}
 		if r == ' ' || r == '<' {
 			boundary = i
 		} else if last == '>' {
@@ -276,6 +280,7 @@ func libraryCut(max int, s []byte) int {
 			break
 		}
 		length = n
+		i += size
 	}
 	if boundary > 0 {
 		return boundary

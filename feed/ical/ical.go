@@ -1,9 +1,12 @@
 // Package ical writes a feed.Calendar as an iCalendar file (RFC 5545, with the
 // calendar properties of RFC 7986) that subscribed calendar clients accept.
 //
-// The calendar and event structure is built and serialized with
-// github.com/arran4/golang-ical (v0.3.4), always with CRLF line endings. The
-// package works around that library where its output would be wrong:
+// The calendar is built and serialized with github.com/arran4/golang-ical
+// (v0.3.4), always with CRLF line endings. Its events are components of this
+// package that write their own content lines, the bytes the library's
+// per-property serializer would write, at a fraction of its cost (see
+// vevent). The package works around that library where its output would be
+// wrong:
 //
 //   - its default line ending is LF: every serialization passes
 //     ics.WithNewLineWindows;
@@ -334,9 +337,9 @@ func (w *writer) zoneSpan() (from, to time.Time) {
 // output buffer is allocated once (a short estimate doubles the buffer and
 // copies it; events take 400 to 800 bytes, so no constant per event fits
 // every feed). It adds up the properties' names, parameters and values, the
-// pre-formatted lines and the component delimiters, plus 1/16 for TEXT
-// escaping and line folding (a fold adds 3 octets per 74). Only the
-// allocation depends on it, never the output.
+// events' fixed lines and own values (see vevent.size) and the component
+// delimiters, plus 1/16 for TEXT escaping and line folding (a fold adds 3
+// octets per 74). Only the allocation depends on it, never the output.
 func (w *writer) size(cal *ics.Calendar) int {
 	n := len("BEGIN:VCALENDAR\r\nEND:VCALENDAR\r\n")
 	for i := range cal.CalendarProperties {

@@ -158,11 +158,13 @@ func paramValue(v string) string {
 // re-escapes every TEXT-typed value (so a comma-separated CATEGORIES list would
 // lose its separators) and backslash-escapes parameter values. Pre-formatted
 // values cannot be passed through AddProperty, because the library applies
-// TEXT escaping again on serialization. contentLine therefore implements
-// ics.Component, which the library serializes in order with the component's
-// other children; it is placed before any VALARM, so it reads as one more
-// property of the event. It folds like the library: at most 75 octets per
-// line, never inside a UTF-8 sequence.
+// TEXT escaping again on serialization. An event writes its CATEGORIES line
+// and its DTSTART/DTEND with a DQUOTEd TZID as such lines, after its other
+// properties and before any VALARM (see vevent.SerializeTo), folded as
+// contentLine.SerializeTo folds them: at most 75 octets per line, never
+// inside a UTF-8 sequence. contentLine also implements ics.Component, which
+// the library serializes in order with a component's other children (the
+// reference encoder of the tests places it among a VEVENT's children).
 type contentLine struct {
 	line string
 }

@@ -60,11 +60,11 @@ type eventLines struct {
 
 // setLines renders w.lines for cfg unless they already are.
 func (w *writer) setLines(cfg *ics.SerializationConfiguration) {
+	w.cfg = cfg
 	l := &w.lines
 	if l.begin != nil && l.max == cfg.MaxLength && l.newline == cfg.NewLine {
 		return
 	}
-	w.cfg = cfg
 	*l = eventLines{max: cfg.MaxLength, newline: cfg.NewLine}
 	l.begin = append([]byte("BEGIN:VEVENT"), cfg.NewLine...)
 	l.end = append([]byte("END:VEVENT"), cfg.NewLine...)

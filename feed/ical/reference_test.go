@@ -26,6 +26,20 @@ import (
 // referenceEvent's; the calendar header and VTIMEZONE are Marshal's own.
 func referenceMarshal(t testing.TB, c *feed.Calendar, opts Options) ([]byte, error) {
 	t.Helper()
+	cal, err := referenceCalendar(t, c, opts)
+	if err != nil {
+		return nil, err
+	}
+	var b bytes.Buffer
+	if err := cal.SerializeTo(&b, ics.WithNewLineWindows); err != nil {
+		t.Fatal(err)
+	}
+	return b.Bytes(), nil
+}
+
+// referenceCalendar is the calendar referenceMarshal serializes.
+func referenceCalendar(t testing.TB, c *feed.Calendar, opts Options) (*ics.Calendar, error) {
+	t.Helper()
 	cal, _, err := build(c, opts)
 	if err != nil {
 		return nil, err
@@ -52,11 +66,7 @@ func referenceMarshal(t testing.TB, c *feed.Calendar, opts Options) ([]byte, err
 	if k != len(c.Entries) {
 		t.Fatalf("reference: %d event components for %d entries", k, len(c.Entries))
 	}
-	var b bytes.Buffer
-	if err := cal.SerializeTo(&b, ics.WithNewLineWindows); err != nil {
-		t.Fatal(err)
-	}
-	return b.Bytes(), nil
+	return cal, nil
 }
 
 // referenceEvent builds the VEVENT of e with the library's setters.
@@ -191,6 +201,42 @@ func TestMarshalMatchesReference(t *testing.T) {
 	r := rand.New(rand.NewSource(3))
 	for i := range 300 {
 		sameAsReference(t, fmt.Sprintf("random %d", i), randomCalendar(t, r))
+	}
+}
+
+// TestEventsOtherConfigurations: with other line lengths and line endings
+// than Marshal's, the events still serialize as the reference's do.
+func TestEventsOtherConfigurations(t *testing.T) {
+	r := rand.New(rand.NewSource(4))
+	cals := []*feed.Calendar{goldenCalendars(t)["saltbush-moon"]}
+	for range 40 {
+		cals = append(cals, randomCalendar(t, r))
+	}
+	configs := [][]any{{}, {ics.WithNewLine("\n")}, {ics.WithLineLength(20)},
+		{ics.WithLineLength(40), ics.WithNewLineWindows}, {ics.WithLineLength(100), ics.WithNewLine("\r")}}
+	for i, c := range cals {
+		cal, _, err := build(c, Options{})
+		if err != nil {
+			continue
+		}
+		ref, err := referenceCalendar(t, c, Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		// Each configuration twice over, with the same calendar: the
+		// events' shared lines follow the configuration.
+		for _, ops := range append(configs, configs...) {
+			var got, want bytes.Buffer
+			if err := cal.SerializeTo(&got, ops...); err != nil {
+				t.Fatal(err)
+			}
+			if err := ref.SerializeTo(&want, ops...); err != nil {
+				t.Fatal(err)
+			}
+			if !bytes.Equal(got.Bytes(), want.Bytes()) {
+				t.Fatalf("%v, calendar %d:\n%q\nreference:\n%q", ops, i, got.String(), want.String())
+			}
+		}
 	}
 }
 

@@ -236,11 +236,15 @@ var textEscapes = [256]byte{'\\': '\\', ';': ';', ',': ',', '\n': 'n'}
 // line ending with newline.
 func libraryFold(b, s []byte, max int, newline string) []byte {
 	if len(s) > max {
-		n := libraryCut(max, s)
+		cut := libraryCut
+		if utf8.Valid(s) {
+			cut = validCut // the same cuts, faster
+		}
+		n := cut(max, s)
 		b = append(append(b, s[:n]...), newline...)
 		s = s[n:]
 		for len(s) > max-1 {
-			n := libraryCut(max-1, s)
+			n := cut(max-1, s)
 			if n == 0 {
 				// The library would loop here for ever (a rune longer
 				// than max-1 octets); never with max 75.
@@ -286,4 +290,24 @@ func libraryCut(max int, s []byte) int {
 		return boundary
 	}
 	return length
+}
+
+// validCut is libraryCut(max, s) for valid UTF-8 s longer than max octets,
+// without decoding. There every rune's length is its octet count, so the
+// runes libraryCut walks are those starting at or before octet max, and
+// " ", "<" and ">" are single octets that never occur inside another
+// rune's sequence: the boundary is the last i in 1..max with s[i] a space
+// or "<" or s[i-1] a ">", and without one the cut is the start of the rune
+// holding octet max.
+func validCut(max int, s []byte) int {
+	for i := max; i > 0; i-- {
+		if c := s[i]; c == ' ' || c == '<' || s[i-1] == '>' {
+			return i
+		}
+	}
+	i := max
+	for i > 0 && !utf8.RuneStart(s[i]) {
+		i--
+	}
+	return i
 }

@@ -240,6 +240,20 @@ func TestEventsOtherConfigurations(t *testing.T) {
 	}
 }
 
+// TestValidCut: on valid UTF-8 the fast cut is the library's, for random
+// texts and every line length from 5 to 100 octets.
+func TestValidCut(t *testing.T) {
+	r := rand.New(rand.NewSource(5))
+	for range 20000 {
+		s := []byte(strings.ToValidUTF8(randomText(r)+randomText(r)+randomText(r), "\uFFFD"))
+		for max := 5; max < min(len(s), 100); max++ {
+			if got, want := validCut(max, s), libraryCut(max, s); got != want {
+				t.Fatalf("max %d, %q: cut %d, library %d", max, s, got, want)
+			}
+		}
+	}
+}
+
 // textPieces build random texts: plain words, the characters TEXT escapes,
 // folding boundaries the library looks for (space, "<", ">"), controls,
 // CR and CRLF, multi-byte and invalid UTF-8.

@@ -215,6 +215,17 @@ func (w *writer) endRawLine(b []byte, start int) []byte {
 func escapeText(b []byte, s string) []byte {
 	from := 0
 	for i := 0; i < len(s); i++ {
+		// Skip 8 octets at a time while none needs escaping.
+		for i+8 <= len(s) {
+			x := load64(s, i)
+			if hasByte(x, '\\') || hasByte(x, ';') || hasByte(x, ',') || hasByte(x, '\n') {
+				break
+			}
+			i += 8
+		}
+		if i >= len(s) {
+			break
+		}
 		esc := textEscapes[s[i]]
 		if esc == 0 {
 			continue
@@ -311,3 +322,23 @@ func validCut(max int, s []byte) int {
 	}
 	return i
 }
+
+// Word-at-a-time tests on 8 octets (the usual bit tricks: a borrow out of
+// an octet that was below n sets its top bit; octets are unsigned).
+const (
+	ones  = 0x0101010101010101
+	highs = 0x8080808080808080
+)
+
+// load64 reads the 8 octets of s from i as a little-endian word.
+func load64(s string, i int) uint64 {
+	s = s[i : i+8]
+	return uint64(s[0]) | uint64(s[1])<<8 | uint64(s[2])<<16 | uint64(s[3])<<24 |
+		uint64(s[4])<<32 | uint64(s[5])<<40 | uint64(s[6])<<48 | uint64(s[7])<<56
+}
+
+// hasLess reports whether an octet of x is below n (n ≤ 128).
+func hasLess(x uint64, n byte) bool { return (x-ones*uint64(n))&^x&highs != 0 }
+
+// hasByte reports whether an octet of x is c.
+func hasByte(x uint64, c byte) bool { return hasLess(x^(ones*uint64(c)), 1) }

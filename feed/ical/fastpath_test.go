@@ -91,3 +91,54 @@ func TestContentLineShort(t *testing.T) {
 		}
 	}
 }
+
+// TestWordTests: the 8-octet tests agree with octet-wise ones, for random
+// words and words built from the octets around the thresholds.
+func TestWordTests(t *testing.T) {
+	r := rand.New(rand.NewSource(6))
+	edge := []byte{0, 1, '\t', '\n', 0x1f, ' ', ',', ';', '\\', 0x7e, 0x7f, 0x80, 0x81, 0xfe, 0xff}
+	for n := range 200000 {
+		var w [8]byte
+		for i := range w {
+			if n%2 == 0 {
+				w[i] = byte(r.Intn(256))
+			} else {
+				w[i] = edge[r.Intn(len(edge))]
+			}
+		}
+		x := load64(string(w[:]), 0)
+		for _, c := range []byte{' ', 1, 0x7f, ',', ';', '\\', '\n'} {
+			less, has := false, false
+			for _, o := range w {
+				less = less || o < c
+				has = has || o == c
+			}
+			if hasLess(x, c) != less {
+				t.Fatalf("hasLess(% x, %#x) = %v", w, c, !less)
+			}
+			if hasByte(x, c) != has {
+				t.Fatalf("hasByte(% x, %#x) = %v", w, c, !has)
+			}
+		}
+	}
+}
+
+// TestCleanTextLong: cleanText and escapeText on long texts (the 8-octet
+// paths) give what the full normalisation and the library's escaping give.
+func TestCleanTextLong(t *testing.T) {
+	pieces := []string{"Sunrise at the upper terrace ", "a", ",", ";", "\\", "\t", "\n", "\r", "\r\n", "\x00",
+		"\x1f", "\x7f", "é", "\u0085", "日", "🌅", "\xff", strings.Repeat("x", 13)}
+	r := rand.New(rand.NewSource(7))
+	for range 20000 {
+		var s string
+		for j := r.Intn(20); j > 0; j-- {
+			s += pieces[r.Intn(len(pieces))]
+		}
+		if got, want := cleanText(s), normaliseText(s); got != want {
+			t.Fatalf("cleanText(%q) = %q, want %q", s, got, want)
+		}
+		if got, want := string(escapeText(nil, s)), ics.ToText(s); got != want {
+			t.Fatalf("escapeText(%q) = %q, want %q", s, got, want)
+		}
+	}
+}

@@ -26,6 +26,18 @@ import (
 // is invalid UTF-8; the only non-ASCII controls are U+0080..U+009F).
 func cleanText(s string) string {
 	for i := 0; i < len(s); {
+		// 8 octets at a time while they are ASCII with no control
+		// character (HTAB and LF, too, take the octet-wise path).
+		for i+8 <= len(s) {
+			x := load64(s, i)
+			if x&highs != 0 || hasLess(x, ' ') || hasByte(x, 0x7f) {
+				break
+			}
+			i += 8
+		}
+		if i >= len(s) {
+			break
+		}
 		if c := s[i]; c < utf8.RuneSelf {
 			if (c < ' ' && c != '\t' && c != '\n') || c == 0x7f {
 				return normaliseText(s)

@@ -7,6 +7,7 @@ import (
 	"slices"
 	"sort"
 	"strconv"
+	"strings"
 	"time"
 
 	"heliocal/astro"
@@ -148,6 +149,8 @@ func PlaceOf(s *config.Site) Place {
 func (sky *Sky) Entries(s *config.Site, feedID string, specs []config.KindSpec, first, last time.Time) ([]Entry, error) {
 	col := &collector{sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
 	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: map[string]int{}}
+	days := int(col.last.Sub(col.first).Hours()/24) + 1
+	w.out = make([]Entry, 0, days*(len(specs)+1))
 	if err := col.prepare(altitudes(col.p.Observer, specs)...); err != nil {
 		return nil, err
 	}
@@ -170,13 +173,14 @@ func (sky *Sky) Entries(s *config.Site, feedID string, specs []config.KindSpec, 
 		for _, n := range col.notes[m0:] {
 			w.note(n)
 		}
+		// each kind's events are done with once they are entries
+		col.events, col.notes = col.events[:0], col.notes[:0]
 	}
-	sort.Slice(w.out, func(i, j int) bool {
-		a, b := w.out[i], w.out[j]
-		if !a.Start.Equal(b.Start) {
-			return a.Start.Before(b.Start)
+	slices.SortFunc(w.out, func(a, b Entry) int {
+		if c := a.Start.Compare(b.Start); c != 0 {
+			return c
 		}
-		return a.UID < b.UID
+		return strings.Compare(a.UID, b.UID)
 	})
 	return w.out, nil
 }

@@ -440,6 +440,7 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 
 	in := c.thresholds[low].upFirst && !c.thresholds[high].upFirst
 	c.events = slices.Grow(c.events, len(lo)/2)
+	n0 := len(c.events) // this kind's spans start here
 	var start time.Time
 	var entered mark
 	seen := map[time.Time]bool{}
@@ -483,21 +484,20 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 			return err
 		}
 		switch {
-		case h > high && c.noSpanCovers(d):
+		case h > high && c.noSpanCovers(d, c.events[n0:]):
 			c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.AlwaysAbove, Family: k.String()})
-		case h < low && c.noSpanCovers(d):
+		case h < low && c.noSpanCovers(d, c.events[n0:]):
 			c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.AlwaysBelow, Family: k.String()})
 		}
 	}
 	return nil
 }
 
-// noSpanCovers reports whether no span of the events collected so far
-// overlaps the local date d.
-func (c *collector) noSpanCovers(d time.Time) bool {
+// noSpanCovers reports whether none of the spans overlaps the local date d.
+func (c *collector) noSpanCovers(d time.Time, spans []Event) bool {
 	from := midnight(d, c.p.Location)
 	to := midnight(d.AddDate(0, 0, 1), c.p.Location)
-	for _, e := range c.events {
+	for _, e := range spans {
 		if !e.End.IsZero() && e.Start.Before(to) && e.End.After(from) {
 			return false
 		}

@@ -97,7 +97,7 @@ func (o *RenderOptions) workers() int {
 	if o.Workers > 0 {
 		return o.Workers
 	}
-	return max(1, runtime.GOMAXPROCS(0))
+	return max(1, 2*runtime.GOMAXPROCS(0))
 }
 
 func (o *RenderOptions) maxFeedBytes() int {

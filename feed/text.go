@@ -3,6 +3,7 @@ package feed
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 	"time"
 
@@ -29,7 +30,17 @@ func dirString(d astro.Direction) string {
 // localClock formats an instant as site-local clock time with the zone
 // abbreviation, e.g. "06:47:12 CET".
 func localClock(t time.Time, loc *time.Location) string {
-	return t.Round(time.Second).In(loc).Format("15:04:05 MST")
+	lt := t.Round(time.Second).In(loc)
+	h, m, sec := lt.Clock()
+	zone, _ := lt.Zone()
+	b := make([]byte, 0, 9+len(zone))
+	b = append(b, byte('0'+h/10), byte('0'+h%10), ':', byte('0'+m/10), byte('0'+m%10), ':', byte('0'+sec/10), byte('0'+sec%10), ' ')
+	return string(append(b, zone...))
+}
+
+// twoDigits writes 0..99 with a leading zero.
+func twoDigits(n int) string {
+	return string([]byte{byte('0' + n/10), byte('0' + n%10)})
 }
 
 // hm formats a duration as "9 h 25 m" (rounded to the minute).
@@ -37,7 +48,7 @@ func hm(d time.Duration) string {
 	d = d.Round(time.Minute)
 	h := int(d / time.Hour)
 	m := int((d % time.Hour) / time.Minute)
-	return fmt.Sprintf("%d h %02d m", h, m)
+	return strconv.Itoa(h) + " h " + twoDigits(m) + " m"
 }
 
 // change formats a signed day-length change as "+1 m 30 s" or "−2 m 05 s".
@@ -49,7 +60,7 @@ func change(d time.Duration) string {
 	d = d.Round(time.Second)
 	m := int(d / time.Minute)
 	s := int((d % time.Minute) / time.Second)
-	return fmt.Sprintf("%s%d m %02d s", sign, m, s)
+	return sign + strconv.Itoa(m) + " m " + twoDigits(s) + " s"
 }
 
 // days formats a long duration as "92 d 18 h".
@@ -179,12 +190,12 @@ func describe(s *siteInfo, e Event) (string, string) {
 	title := plainNames[e.Kind.Name]
 	switch e.Kind.Name {
 	case "sunrise", "sunset":
-		fmt.Fprintf(&b, "%s at %s, %s.\n", title, at, s.where)
-		fmt.Fprintf(&b, "Day length %s (%s on the day before).\n", hm(e.DayLength), change(e.DayChange))
+		b.WriteString(title + " at " + at + ", " + s.where + ".\n")
+		b.WriteString("Day length " + hm(e.DayLength) + " (" + change(e.DayChange) + " on the day before).\n")
 		b.WriteString("Upper limb of the Sun on the horizon with standard refraction.\n")
 		b.WriteString(cautionLegal)
 	case "civil-dawn", "civil-dusk", "nautical-dawn", "nautical-dusk", "astronomical-dawn", "astronomical-dusk":
-		fmt.Fprintf(&b, "%s at %s, %s.\n%s", title, at, s.where, twilightMeaning[e.Kind.Name])
+		b.WriteString(title + " at " + at + ", " + s.where + ".\n" + twilightMeaning[e.Kind.Name])
 		if strings.HasPrefix(e.Kind.Name, "civil") {
 			b.WriteString("\n" + cautionLegal)
 		}
@@ -196,13 +207,13 @@ func describe(s *siteInfo, e Event) (string, string) {
 		}
 		b.WriteString(".\n" + cautionEyes)
 	case "golden-hour", "blue-hour":
-		title = fmt.Sprintf("%s (%s)", title, partName(e.Part))
+		title = title + " (" + partName(e.Part) + ")"
 		lo, hi := "−4°", "+6°"
 		if e.Kind.Name == "blue-hour" {
 			lo, hi = "−6°", "−4°"
 		}
-		fmt.Fprintf(&b, "%s from %s to %s (%s), %s.\nThe Sun's centre is between %s and %s: soft, warm light for photography and events.\n",
-			title, at, localClock(e.End, loc), hm(e.End.Sub(e.Start)), s.where, lo, hi)
+		b.WriteString(title + " from " + at + " to " + localClock(e.End, loc) + " (" + hm(e.End.Sub(e.Start)) + "), " + s.where +
+			".\nThe Sun's centre is between " + lo + " and " + hi + ": soft, warm light for photography and events.\n")
 		b.WriteString(cautionEyes)
 	case "sun-altitude":
 		verb := "rises through"

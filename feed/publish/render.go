@@ -84,7 +84,8 @@ type RenderOptions struct {
 	// Shard restricts the run to one part of the feeds; see Publish for what
 	// happens to feeds.json and index.html then.
 	Shard Shard
-	// Workers bounds the feeds rendered at once; zero means GOMAXPROCS.
+	// Workers bounds the feeds rendered at once; zero means twice GOMAXPROCS
+	// (a worker spends part of its time waiting for the disk).
 	Workers int
 	// MaxFeedBytes is the size above which a feed is listed in
 	// Stats.Oversize; zero means DefaultMaxFeedBytes, negative disables it.

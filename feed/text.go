@@ -14,8 +14,8 @@ import (
 // Cautions appended to descriptions that someone could rely on for legal
 // purposes or for their eyes.
 const (
-	cautionLegal = "Computed for planning from the site's coordinates and a flat horizon; local rules decide " +
-		"legal times such as hunting hours, lighting-up times and aviation night."
+	cautionLegal = "Computed for planning; local rules decide legal times such as hunting hours, " +
+		"lighting-up times and aviation night."
 	cautionEyes = "Never look directly at the Sun."
 )
 
@@ -190,12 +190,12 @@ func describe(s *siteInfo, e Event) (string, string) {
 	title := plainNames[e.Kind.Name]
 	switch e.Kind.Name {
 	case "sunrise", "sunset":
-		b.WriteString(title + " at " + at + ", " + s.where + ".\n")
+		b.WriteString(title + " at " + at + ".\n")
 		b.WriteString("Day length " + hm(e.DayLength) + " (" + change(e.DayChange) + " on the day before).\n")
 		b.WriteString("Upper limb of the Sun on the horizon with standard refraction.\n")
 		b.WriteString(cautionLegal)
 	case "civil-dawn", "civil-dusk", "nautical-dawn", "nautical-dusk", "astronomical-dawn", "astronomical-dusk":
-		b.WriteString(title + " at " + at + ", " + s.where + ".\n" + twilightMeaning[e.Kind.Name])
+		b.WriteString(title + " at " + at + ".\n" + twilightMeaning[e.Kind.Name])
 		if strings.HasPrefix(e.Kind.Name, "civil") {
 			b.WriteString("\n" + cautionLegal)
 		}
@@ -212,8 +212,8 @@ func describe(s *siteInfo, e Event) (string, string) {
 		if e.Kind.Name == "blue-hour" {
 			lo, hi = "−6°", "−4°"
 		}
-		b.WriteString(title + " from " + at + " to " + localClock(e.End, loc) + " (" + hm(e.End.Sub(e.Start)) + "), " + s.where +
-			".\nThe Sun's centre is between " + lo + " and " + hi + ": soft, warm light for photography and events.\n")
+		b.WriteString(title + " from " + at + " to " + localClock(e.End, loc) + " (" + hm(e.End.Sub(e.Start)) +
+			").\nThe Sun's centre is between " + lo + " and " + hi + ": soft, warm light for photography and events.\n")
 		b.WriteString(cautionEyes)
 	case "sun-altitude":
 		verb := "rises through"

@@ -3,6 +3,7 @@ package main
 import (
 	"context"
 	"fmt"
+	"runtime/debug"
 	"time"
 
 	"github.com/spf13/cobra"
@@ -65,6 +66,12 @@ func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Tim
 	out := cfg.Service.OutDir
 	if o.out != "" {
 		out = o.out
+	}
+	// A publish is a batch job: trading memory for fewer collections makes
+	// a large configuration about 10% faster (1,000 feeds: 55 → 118 MB
+	// peak). An explicit GOGC in the environment wins.
+	if _, ok := g.getenv("GOGC"); !ok {
+		debug.SetGCPercent(400)
 	}
 	srcs, opts, err := build(cfg, now, newLayout(base, ""))
 	if err != nil {

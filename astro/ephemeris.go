@@ -245,17 +245,7 @@ func (e *Ephemeris) SunTransits(o Observer, from, to time.Time) ([]Transit, erro
 	if err := e.checkSpan(from, to); err != nil {
 		return nil, err
 	}
-	st := newSite(o)
-	ts := e.sun.transits(st, unixSeconds(from), unixSeconds(to))
-	out := make([]Transit, 0, len(ts))
-	for _, s := range ts {
-		t := timeFromUnix(s)
-		if t.Before(from) || !t.Before(to) {
-			continue
-		}
-		out = append(out, Transit{Time: t, Altitude: math.Asin(e.sun.sinAltitude(st, s)) * rad2deg})
-	}
-	return out, nil
+	return e.sun.transitList(newSite(o), from, to), nil
 }
 
 // SunAltitude returns the topocentric geometric altitude of the Sun's
@@ -267,7 +257,7 @@ func (e *Ephemeris) SunAltitude(o Observer, t time.Time) (float64, error) {
 	if err := e.checkSpan(t, t); err != nil {
 		return 0, err
 	}
-	return math.Asin(e.sun.sinAltitude(newSite(o), unixSeconds(t))) * rad2deg, nil
+	return e.sun.altitude(newSite(o), t), nil
 }
 
 // State says whether a threshold is crossed during a date.

@@ -50,6 +50,7 @@ package astro
 import (
 	"math"
 	"slices"
+	"time"
 )
 
 // siderealRate is ω, the Earth's rotation rate on the mean equinox in
@@ -447,4 +448,26 @@ func (tr *track) transits(st *site, a, b float64) []float64 {
 		t = tp + 1
 	}
 	return slices.Clip(out)
+}
+
+// transitList is transits as Transit values for the observer's site, with
+// the topocentric geometric altitude of the centre at each, kept within
+// [from, to) after rounding to time.Time. Shared by the Sun and the Moon.
+func (tr *track) transitList(st *site, from, to time.Time) []Transit {
+	ts := tr.transits(st, unixSeconds(from), unixSeconds(to))
+	out := make([]Transit, 0, len(ts))
+	for _, s := range ts {
+		t := timeFromUnix(s)
+		if t.Before(from) || !t.Before(to) {
+			continue
+		}
+		out = append(out, Transit{Time: t, Altitude: math.Asin(tr.sinAltitude(st, s)) * rad2deg})
+	}
+	return out
+}
+
+// altitude is the topocentric geometric altitude of the centre, degrees,
+// at the instant t.
+func (tr *track) altitude(st *site, t time.Time) float64 {
+	return math.Asin(tr.sinAltitude(st, unixSeconds(t))) * rad2deg
 }

@@ -294,17 +294,7 @@ func (e *MoonEphemeris) MoonTransits(o Observer, from, to time.Time) ([]Transit,
 	if err := e.checkSpan(from, to); err != nil {
 		return nil, err
 	}
-	st := newSite(o)
-	ts := e.moon.transits(st, unixSeconds(from), unixSeconds(to))
-	out := make([]Transit, 0, len(ts))
-	for _, s := range ts {
-		t := timeFromUnix(s)
-		if t.Before(from) || !t.Before(to) {
-			continue
-		}
-		out = append(out, Transit{Time: t, Altitude: math.Asin(e.moon.sinAltitude(st, s)) * rad2deg})
-	}
-	return out, nil
+	return e.moon.transitList(newSite(o), from, to), nil
 }
 
 // MoonAltitude returns the topocentric geometric altitude of the Moon's
@@ -316,7 +306,7 @@ func (e *MoonEphemeris) MoonAltitude(o Observer, t time.Time) (float64, error) {
 	if err := e.checkSpan(t, t); err != nil {
 		return 0, err
 	}
-	return math.Asin(e.moon.sinAltitude(newSite(o), unixSeconds(t))) * rad2deg, nil
+	return e.moon.altitude(newSite(o), t), nil
 }
 
 // moonUp reports whether the Moon's upper limb is above the (refracted)

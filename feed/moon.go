@@ -69,15 +69,24 @@ func (c *collector) phases(k config.Kind) error {
 		if k.Name != "moon-phases" && k.Name != name {
 			continue
 		}
-		e := Event{Kind: config.Kind{Name: name}, Start: p.Time, Date: localDate(p.Time, c.p.Location)}
-		if !c.inRange(e.Date) {
-			continue
-		}
-		if err := c.lit(&e); err != nil {
+		if err := c.addLit(Event{Kind: config.Kind{Name: name}, Start: p.Time}); err != nil {
 			return err
 		}
-		c.events = append(c.events, e)
 	}
+	return nil
+}
+
+// addLit adds a Moon event at its local date, when that date is in range,
+// with the Moon's illumination.
+func (c *collector) addLit(e Event) error {
+	e.Date = localDate(e.Start, c.p.Location)
+	if !c.inRange(e.Date) {
+		return nil
+	}
+	if err := c.lit(&e); err != nil {
+		return err
+	}
+	c.events = append(c.events, e)
 	return nil
 }
 
@@ -132,14 +141,9 @@ func (c *collector) moonTransits(k config.Kind) error {
 		return err
 	}
 	for _, t := range ts {
-		e := Event{Kind: k, Start: t.Time, Date: localDate(t.Time, c.p.Location), Altitude: t.Altitude}
-		if !c.inRange(e.Date) {
-			continue
-		}
-		if err := c.lit(&e); err != nil {
+		if err := c.addLit(Event{Kind: k, Start: t.Time, Altitude: t.Altitude}); err != nil {
 			return err
 		}
-		c.events = append(c.events, e)
 	}
 	return nil
 }

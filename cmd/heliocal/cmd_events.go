@@ -290,7 +290,7 @@ func writeEventsJSON(w io.Writer, s *config.Site, from, to time.Time, events []f
 		out.Events = append(out.Events, toJSONEvent(e))
 	}
 	for _, n := range notes {
-		out.Notes = append(out.Notes, jsonNote{Kind: n.Kind.String(), Date: n.Date.Format(time.DateOnly), State: n.State.String()})
+		out.Notes = append(out.Notes, jsonNote{Kind: n.Kind.String(), Date: n.Date.Format(time.DateOnly), State: stateName(n.State)})
 	}
 	out.Site = jsonSite{Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation,
 		Horizon: s.Horizon, TimeZone: s.TimeZone.String(), From: from.Format(time.DateOnly), To: to.Format(time.DateOnly)}
@@ -305,7 +305,7 @@ func writeEventsCSV(w io.Writer, s *config.Site, events []feed.Event, notes []fe
 	_ = cw.Write([]string{"date", "kind", "start_utc", "end_utc", "direction", "start_local", "end_local", "state"})
 	for _, r := range mergeRows(events, notes) {
 		if r.note != nil {
-			_ = cw.Write([]string{r.note.Date.Format(time.DateOnly), r.note.Kind.String(), "", "", "", "", "", r.note.State.String()})
+			_ = cw.Write([]string{r.note.Date.Format(time.DateOnly), r.note.Kind.String(), "", "", "", "", "", stateName(r.note.State)})
 			continue
 		}
 		e := r.event
@@ -369,6 +369,16 @@ func writeEventsTable(w io.Writer, s *config.Site, events []feed.Event, notes []
 	return tw.Flush()
 }
 
+// stateName names a note's state in JSON and CSV: "always-above",
+// "always-below", or "no-event" for a date that simply has none (no
+// moonrise: the Moon rises about 50 minutes later each day).
+func stateName(s astro.State) string {
+	if s == astro.Crosses {
+		return "no-event"
+	}
+	return s.String()
+}
+
 func stateText(s astro.State) string {
 	switch s {
 	case astro.AlwaysAbove:
@@ -376,7 +386,7 @@ func stateText(s astro.State) string {
 	case astro.AlwaysBelow:
 		return "no event: stays below all day"
 	}
-	return s.String()
+	return "no event on this date"
 }
 
 func details(e *feed.Event, loc *time.Location) string {

@@ -176,13 +176,28 @@ func (sky *Sky) Entries(s *config.Site, feedID string, specs []config.KindSpec, 
 		// each kind's events are done with once they are entries
 		col.events, col.notes = col.events[:0], col.notes[:0]
 	}
-	slices.SortFunc(w.out, func(a, b Entry) int {
+	return sortEntries(w.out), nil
+}
+
+// sortEntries orders entries by Start, then UID. It sorts indices and moves
+// each entry once: entries are large, and swapping them dominated the sort.
+func sortEntries(es []Entry) []Entry {
+	idx := make([]int32, len(es))
+	for i := range idx {
+		idx[i] = int32(i)
+	}
+	slices.SortFunc(idx, func(i, j int32) int {
+		a, b := &es[i], &es[j]
 		if c := a.Start.Compare(b.Start); c != 0 {
 			return c
 		}
 		return strings.Compare(a.UID, b.UID)
 	})
-	return w.out, nil
+	out := make([]Entry, len(es))
+	for i, j := range idx {
+		out[i] = es[j]
+	}
+	return out
 }
 
 // summaries adds one all-day entry per date: sunrise, sunset, day length and

@@ -60,7 +60,7 @@ func TestValidationErrors(t *testing.T) {
 		{"no-kinds.yaml", "feeds[0].kinds", "", "no kinds", "", 0},
 		{"window-too-long.yaml", "feeds[0].days_ahead", "4000", "window of 4030 days (days_back 30 + days_ahead 4000) is over 10 years", "", 0},
 		{"negative-days.yaml", "feeds[0].days_back", "-1", "must not be negative", "", 0},
-		{"bad-sun-altitude.yaml", "feeds[0].kinds[0]", "sun-altitude:95", "altitude in kind must be within -90..90", "", 0},
+		{"bad-sun-altitude.yaml", "feeds[0].kinds[0]", "sun-altitude:95", "altitude must be within -90..90", "", 0},
 		{"bad-sun-altitude-text.yaml", "feeds[0].kinds[0]", "sun-altitude:low", "malformed altitude", "", 0},
 		{"bad-photoperiod.yaml", "feeds[0].kinds[0]", "photoperiod:25h", "longer than 0 and shorter than 24h", "", 0},
 		{"bad-photoperiod-unit.yaml", "feeds[0].kinds[0]", "photoperiod:12", "malformed day length", "14h30m", 0},

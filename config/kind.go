@@ -144,8 +144,13 @@ type KindError struct {
 	Hint  string // a suggestion, may be empty
 }
 
+const msgUnknownKind = "unknown kind"
+
 func (e *KindError) Error() string {
-	s := fmt.Sprintf("%s %q", e.Msg, e.Value)
+	s := fmt.Sprintf("kind %q: %s", e.Value, e.Msg)
+	if e.Msg == msgUnknownKind {
+		s = fmt.Sprintf("%s %q", e.Msg, e.Value)
+	}
 	if e.Hint != "" {
 		s += " (" + e.Hint + ")"
 	}
@@ -177,37 +182,37 @@ func ParseKind(s string) (Kind, error) {
 		} else {
 			hint = "known kinds: " + strings.Join(KindNames, ", ")
 		}
-		return Kind{}, &KindError{Value: s, Msg: "unknown kind", Hint: hint}
+		return Kind{}, &KindError{Value: s, Msg: msgUnknownKind, Hint: hint}
 	}
 	if d.flags&flagParam == 0 {
 		if hasParam {
-			return Kind{}, &KindError{Value: s, Msg: "kind takes no parameter", Hint: fmt.Sprintf("write %q", d.name)}
+			return Kind{}, &KindError{Value: s, Msg: "takes no parameter", Hint: fmt.Sprintf("write %q", d.name)}
 		}
 		return Kind{Name: d.name}, nil
 	}
 	switch d.name {
 	case KindSunAltitude:
 		if param == "" {
-			return Kind{}, &KindError{Value: s, Msg: "kind needs an altitude in degrees", Hint: `e.g. "sun-altitude:-3.5"`}
+			return Kind{}, &KindError{Value: s, Msg: "needs an altitude in degrees", Hint: `e.g. "sun-altitude:-3.5"`}
 		}
 		deg, err := strconv.ParseFloat(param, 64)
 		if err != nil || math.IsNaN(deg) || math.IsInf(deg, 0) {
-			return Kind{}, &KindError{Value: s, Msg: "malformed altitude in kind", Hint: `write degrees as a decimal number, e.g. "sun-altitude:-3.5"`}
+			return Kind{}, &KindError{Value: s, Msg: "malformed altitude", Hint: `write degrees as a decimal number, e.g. "sun-altitude:-3.5"`}
 		}
 		if !(deg > -90 && deg < 90) {
-			return Kind{}, &KindError{Value: s, Msg: "altitude in kind must be within -90..90 (exclusive)", Hint: "civil twilight is -6, the horizon 0"}
+			return Kind{}, &KindError{Value: s, Msg: "altitude must be within -90..90 (exclusive)", Hint: "civil twilight is -6, the horizon 0"}
 		}
 		return Kind{Name: KindSunAltitude, Altitude: deg}, nil
 	default: // KindPhotoperiod
 		if param == "" {
-			return Kind{}, &KindError{Value: s, Msg: "kind needs a day length", Hint: `e.g. "photoperiod:12h" or "photoperiod:14h30m"`}
+			return Kind{}, &KindError{Value: s, Msg: "needs a day length", Hint: `e.g. "photoperiod:12h" or "photoperiod:14h30m"`}
 		}
 		dur, err := time.ParseDuration(param)
 		if err != nil {
-			return Kind{}, &KindError{Value: s, Msg: "malformed day length in kind", Hint: `write hours and minutes with units, e.g. "photoperiod:14h30m"`}
+			return Kind{}, &KindError{Value: s, Msg: "malformed day length", Hint: `write hours and minutes with units, e.g. "photoperiod:14h30m"`}
 		}
 		if !(dur > 0 && dur < 24*time.Hour) {
-			return Kind{}, &KindError{Value: s, Msg: "day length in kind must be longer than 0 and shorter than 24h", Hint: `e.g. "photoperiod:12h"`}
+			return Kind{}, &KindError{Value: s, Msg: "day length must be longer than 0 and shorter than 24h", Hint: `e.g. "photoperiod:12h"`}
 		}
 		return Kind{Name: KindPhotoperiod, DayLength: dur}, nil
 	}

@@ -87,7 +87,7 @@ func TestParseKindErrors(t *testing.T) {
 		{"sunaltitude", "unknown kind", `did you mean "sun-altitude:-3.5"?`},
 		{"tea-time", "unknown kind", "known kinds: sunrise, sunset"},
 		{"", "unknown kind", "known kinds:"},
-		{"sunrise:5", "kind takes no parameter", `write "sunrise"`},
+		{"sunrise:5", "takes no parameter", `write "sunrise"`},
 		{"sun-altitude", "needs an altitude", ""},
 		{"sun-altitude:", "needs an altitude", ""},
 		{"sun-altitude:90", "must be within -90..90", ""},

@@ -1,0 +1,99 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"io"
+	"net"
+	"net/http"
+	"strings"
+	"testing"
+	"time"
+
+	goical "github.com/emersion/go-ical"
+)
+
+// freePort returns a loopback address that was free a moment ago.
+func freePort(t *testing.T) string {
+	t.Helper()
+	ln, err := net.Listen("tcp", "127.0.0.1:0")
+	if err != nil {
+		t.Fatal(err)
+	}
+	addr := ln.Addr().String()
+	ln.Close()
+	return addr
+}
+
+// heliocal serve on the built-in demo: the wiring of the command (build,
+// ad-hoc feeds, schedule, shutdown) end to end over real HTTP on loopback.
+func TestServeDemo(t *testing.T) {
+	t.Chdir(t.TempDir())
+	addr := freePort(t)
+	ctx, cancel := context.WithCancel(context.Background())
+	var errOut bytes.Buffer
+	done := make(chan int, 1)
+	go func() {
+		done <- run(ctx, []string{"serve", "--listen", addr, "--access-log=false"}, io.Discard, &errOut, noEnv)
+	}()
+	base := "http://" + addr
+	get := func(path string) (*http.Response, string) {
+		t.Helper()
+		resp, err := http.Get(base + path)
+		if err != nil {
+			t.Fatal(err)
+		}
+		defer resp.Body.Close()
+		b, _ := io.ReadAll(resp.Body)
+		return resp, string(b)
+	}
+	// wait for the first build (bounded: the demo builds in well under a second)
+	deadline := time.Now().Add(60 * time.Second)
+	for {
+		resp, err := http.Get(base + "/healthz")
+		if err == nil {
+			resp.Body.Close()
+			if resp.StatusCode == http.StatusOK {
+				break
+			}
+		}
+		if time.Now().After(deadline) {
+			cancel()
+			t.Fatalf("server not healthy: %v\n%s", err, errOut.String())
+		}
+		time.Sleep(50 * time.Millisecond)
+	}
+
+	resp, body := get("/feeds/fernhollow-sun.ics")
+	if resp.StatusCode != http.StatusOK || resp.Header.Get("Content-Type") != "text/calendar; charset=utf-8" {
+		t.Errorf("feed: %d %q", resp.StatusCode, resp.Header.Get("Content-Type"))
+	}
+	if _, err := goical.NewDecoder(strings.NewReader(body)).Decode(); err != nil {
+		t.Errorf("served feed does not parse: %v", err)
+	}
+
+	// An ad-hoc feed for a place: the sunrise of 2027-06-21 in Vienna, one day.
+	resp, body = get("/at.ics?lat=48.2&lon=16.4&tz=Europe/Vienna&kinds=sunrise&days=1&start=2027-06-21")
+	if resp.StatusCode != http.StatusOK || !strings.Contains(body, "DTSTART;TZID=Europe/Vienna:20270621T04") {
+		t.Errorf("ad-hoc feed: %d\n%s", resp.StatusCode, body)
+	}
+	// Bad input is a 400 naming the parameter and the value.
+	resp, body = get("/at.ics?lat=95&lon=0&tz=UTC")
+	if resp.StatusCode != http.StatusBadRequest || !strings.Contains(body, "lat") || !strings.Contains(body, "95") {
+		t.Errorf("bad latitude: %d %q", resp.StatusCode, body)
+	}
+	resp, body = get("/at.ics?lat=10&lon=0&tz=UTC&kinds=sunrize")
+	if resp.StatusCode != http.StatusBadRequest || !strings.Contains(body, "sunrize") {
+		t.Errorf("bad kind: %d %q", resp.StatusCode, body)
+	}
+
+	cancel()
+	select {
+	case code := <-done:
+		if code != 0 {
+			t.Errorf("serve exited %d: %s", code, errOut.String())
+		}
+	case <-time.After(30 * time.Second):
+		t.Fatal("serve did not shut down")
+	}
+}

@@ -6,9 +6,15 @@ import (
 	"io"
 	"net"
 	"net/http"
+	"os"
+	"path/filepath"
 	"strings"
+	"sync"
+	"syscall"
 	"testing"
 	"time"
+
+	"heliocal/config"
 
 	goical "github.com/emersion/go-ical"
 )
@@ -31,10 +37,10 @@ func TestServeDemo(t *testing.T) {
 	t.Chdir(t.TempDir())
 	addr := freePort(t)
 	ctx, cancel := context.WithCancel(context.Background())
-	var errOut bytes.Buffer
+	errOut := &lockedBuffer{}
 	done := make(chan int, 1)
 	go func() {
-		done <- run(ctx, []string{"serve", "--listen", addr, "--access-log=false"}, io.Discard, &errOut, noEnv)
+		done <- run(ctx, []string{"serve", "--listen", addr, "--access-log=false"}, io.Discard, errOut, noEnv)
 	}()
 	base := "http://" + addr
 	get := func(path string) (*http.Response, string) {
@@ -95,5 +101,80 @@ func TestServeDemo(t *testing.T) {
 		}
 	case <-time.After(30 * time.Second):
 		t.Fatal("serve did not shut down")
+	}
+}
+
+// lockedBuffer is a bytes.Buffer safe for the server's log goroutines.
+type lockedBuffer struct {
+	mu sync.Mutex
+	b  bytes.Buffer
+}
+
+func (l *lockedBuffer) Write(p []byte) (int, error) {
+	l.mu.Lock()
+	defer l.mu.Unlock()
+	return l.b.Write(p)
+}
+
+func (l *lockedBuffer) String() string {
+	l.mu.Lock()
+	defer l.mu.Unlock()
+	return l.b.String()
+}
+
+// SIGHUP with a configuration made invalid is refused: the error is logged
+// and the old feeds keep being served.
+func TestServeReloadRefusesInvalidConfig(t *testing.T) {
+	dir := t.TempDir()
+	path := filepath.Join(dir, "farm.yaml")
+	if err := os.WriteFile(path, config.DemoYAML(), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	addr := freePort(t)
+	ctx, cancel := context.WithCancel(context.Background())
+	defer cancel()
+	logs := &lockedBuffer{}
+	done := make(chan int, 1)
+	go func() {
+		done <- run(ctx, []string{"serve", "--config", path, "--listen", addr, "--access-log=false"}, io.Discard, logs, noEnv)
+	}()
+	base := "http://" + addr
+	waitFor := func(what string, ok func() bool) {
+		t.Helper()
+		for deadline := time.Now().Add(60 * time.Second); !ok(); time.Sleep(50 * time.Millisecond) {
+			if time.Now().After(deadline) {
+				t.Fatalf("timed out waiting for %s\n%s", what, logs.String())
+			}
+		}
+	}
+	fetch := func(p string) (int, string) {
+		resp, err := http.Get(base + p)
+		if err != nil {
+			return 0, ""
+		}
+		defer resp.Body.Close()
+		b, _ := io.ReadAll(resp.Body)
+		return resp.StatusCode, string(b)
+	}
+	waitFor("the first build", func() bool { code, _ := fetch("/healthz"); return code == http.StatusOK })
+	_, before := fetch("/feeds/fernhollow-sun.ics")
+
+	if err := os.WriteFile(path, []byte("sites:\n  - id: x\n    latitude: 95\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := syscall.Kill(os.Getpid(), syscall.SIGHUP); err != nil {
+		t.Fatal(err)
+	}
+	waitFor("the refused reload", func() bool { return strings.Contains(logs.String(), "reload refused") })
+	if !strings.Contains(logs.String(), "latitude") {
+		t.Errorf("the log does not name the bad field:\n%s", logs.String())
+	}
+	code, after := fetch("/feeds/fernhollow-sun.ics")
+	if code != http.StatusOK || after != before {
+		t.Errorf("after a refused reload the feed changed (status %d)", code)
+	}
+	cancel()
+	if code := <-done; code != 0 {
+		t.Errorf("serve exited %d:\n%s", code, logs.String())
 	}
 }

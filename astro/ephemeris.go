@@ -104,8 +104,25 @@ func (o Observer) RiseSetAltitude() float64 {
 // direct evaluation is measured in TestEphemerisInterpolation (below
 // 0.001″). An Ephemeris is immutable and safe for concurrent use.
 type Ephemeris struct {
-	from, to time.Time // queries allowed in [from, to]
+	coverage // queries allowed in [from, to]
 	sun      *track
+}
+
+// coverage is the span an ephemeris (the Sun's or the Moon's) answers
+// queries for.
+type coverage struct{ from, to time.Time }
+
+// Coverage returns the span in which the ephemeris answers queries.
+func (c coverage) Coverage() (from, to time.Time) { return c.from, c.to }
+
+// checkSpan returns a *RangeError when from or to lies outside the coverage.
+func (c coverage) checkSpan(from, to time.Time) error {
+	for _, t := range [2]time.Time{from, to} {
+		if t.Before(c.from) || t.After(c.to) {
+			return &RangeError{What: "time", Value: t.UTC().Format(time.RFC3339), Min: c.from.Format(time.RFC3339), Max: c.to.Format(time.RFC3339)}
+		}
+	}
+	return nil
 }
 
 // ephemerisMargin is how far beyond the requested span an ephemeris answers
@@ -135,20 +152,7 @@ func NewEphemeris(from, to time.Time) (*Ephemeris, error) {
 		s := apparentSun(e.JDE)
 		return s.ra, s.dec, s.r * earthRadiiPerAU
 	})
-	return &Ephemeris{from: qa, to: qb, sun: tr}, nil
-}
-
-// Coverage returns the span in which the ephemeris answers queries.
-func (e *Ephemeris) Coverage() (from, to time.Time) { return e.from, e.to }
-
-// checkSpan validates a query span against the coverage.
-func (e *Ephemeris) checkSpan(from, to time.Time) error {
-	for _, t := range [2]time.Time{from, to} {
-		if t.Before(e.from) || t.After(e.to) {
-			return &RangeError{What: "time", Value: t.UTC().Format(time.RFC3339), Min: e.from.Format(time.RFC3339), Max: e.to.Format(time.RFC3339)}
-		}
-	}
-	return nil
+	return &Ephemeris{coverage: coverage{qa, qb}, sun: tr}, nil
 }
 
 // Direction tells whether the Sun crosses a threshold going up or down.

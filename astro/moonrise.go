@@ -50,7 +50,7 @@ const moonTrackStep = 6 * 3600.0
 // for illumination and dark-sky windows) over a span; it serves any number
 // of observers. It is immutable and safe for concurrent use.
 type MoonEphemeris struct {
-	from, to time.Time // queries allowed in [from, to]
+	coverage // queries allowed in [from, to]
 	moon     *track
 	sun      *Ephemeris
 }
@@ -80,23 +80,11 @@ func NewMoonEphemeris(from, to time.Time) (*MoonEphemeris, error) {
 		s := moonApparentFrom(e.JDE, lon[k], lat[k], dist[k])
 		return s.ra, s.dec, s.dist / earthRadiusKm
 	})
-	return &MoonEphemeris{from: qa, to: qb, moon: tr, sun: sun}, nil
+	return &MoonEphemeris{coverage: coverage{qa, qb}, moon: tr, sun: sun}, nil
 }
-
-// Coverage returns the span in which the ephemeris answers queries.
-func (e *MoonEphemeris) Coverage() (from, to time.Time) { return e.from, e.to }
 
 // Sun returns the Sun's ephemeris over the same span, built with the Moon's.
 func (e *MoonEphemeris) Sun() *Ephemeris { return e.sun }
-
-func (e *MoonEphemeris) checkSpan(from, to time.Time) error {
-	for _, t := range [2]time.Time{from, to} {
-		if t.Before(e.from) || t.After(e.to) {
-			return &RangeError{What: "time", Value: t.UTC().Format(time.RFC3339), Min: e.from.Format(time.RFC3339), Max: e.to.Format(time.RFC3339)}
-		}
-	}
-	return nil
-}
 
 // moonRiseSetAltitude returns h₀ (radians) for the topocentric semidiameter
 // sd (radians): the Sun's rise/set altitude for this observer with the Sun's

@@ -295,57 +295,66 @@ func load(ctx context.Context, name string, conns, n int, d time.Duration, next 
 	ctx, cancel := context.WithTimeout(ctx, d)
 	defer cancel()
 	var issued atomic.Int64
-	type local struct {
-		lat      []time.Duration
-		statuses map[int]int
-		errors   int
-		firstErr error
-		bytes    int64
-	}
-	locals := make([]local, conns)
+	return measure(name, conns, n, func(l *tally) {
+		for ctx.Err() == nil {
+			i := int(issued.Add(1)) - 1
+			if i >= n {
+				return
+			}
+			req, err := next(i)
+			if err != nil {
+				l.errors++
+				l.firstErr = cmp(l.firstErr, err)
+				continue
+			}
+			t0 := time.Now()
+			resp, err := client.Do(req.WithContext(ctx))
+			if err != nil {
+				if ctx.Err() == nil {
+					l.errors++
+					l.firstErr = cmp(l.firstErr, err)
+				}
+				continue
+			}
+			nb, err := io.Copy(io.Discard, resp.Body)
+			resp.Body.Close()
+			if err != nil {
+				if ctx.Err() == nil {
+					l.errors++
+					l.firstErr = cmp(l.firstErr, err)
+				}
+				continue
+			}
+			l.lat = append(l.lat, time.Since(t0))
+			l.statuses[resp.StatusCode]++
+			l.bytes += nb
+		}
+	})
+}
+
+// tally is what one connection of a run counted.
+type tally struct {
+	lat      []time.Duration
+	statuses map[int]int
+	errors   int
+	firstErr error
+	bytes    int64
+}
+
+// measure runs worker on conns goroutines, each with a tally of its own,
+// and merges the tallies with the CPU time the server and this process
+// used meanwhile.
+func measure(name string, conns, n int, worker func(l *tally)) *result {
+	locals := make([]tally, conns)
 	var wg sync.WaitGroup
 	cpu0, cpuOK := processCPU(serverPID)
 	self0 := selfCPU()
 	start := time.Now()
 	for w := range conns {
-		wg.Go(func() {
-			l := &locals[w]
-			l.statuses = map[int]int{}
-			l.lat = make([]time.Duration, 0, n/conns+1)
-			for ctx.Err() == nil {
-				i := int(issued.Add(1)) - 1
-				if i >= n {
-					return
-				}
-				req, err := next(i)
-				if err != nil {
-					l.errors++
-					l.firstErr = cmp(l.firstErr, err)
-					continue
-				}
-				t0 := time.Now()
-				resp, err := client.Do(req.WithContext(ctx))
-				if err != nil {
-					if ctx.Err() == nil {
-						l.errors++
-						l.firstErr = cmp(l.firstErr, err)
-					}
-					continue
-				}
-				nb, err := io.Copy(io.Discard, resp.Body)
-				resp.Body.Close()
-				if err != nil {
-					if ctx.Err() == nil {
-						l.errors++
-						l.firstErr = cmp(l.firstErr, err)
-					}
-					continue
-				}
-				l.lat = append(l.lat, time.Since(t0))
-				l.statuses[resp.StatusCode]++
-				l.bytes += nb
-			}
-		})
+		l := &locals[w]
+		l.statuses = map[int]int{}
+		l.lat = make([]time.Duration, 0, n/conns+1)
+		wg.Go(func() { worker(l) })
 	}
 	wg.Wait()
 	r := &result{name: name, conns: conns, elapsed: time.Since(start), statuses: map[int]int{}}
@@ -413,95 +422,62 @@ func rawLoad(ctx context.Context, name string, u *url.URL, conns, n int, d time.
 	defer cancel()
 	reqBytes := []byte("GET " + u.RequestURI() + " HTTP/1.1\r\nHost: " + u.Host + "\r\nUser-Agent: heliocal-loadtest\r\n" + headers + "\r\n")
 	var issued atomic.Int64
-	type local struct {
-		lat      []time.Duration
-		statuses map[int]int
-		errors   int
-		firstErr error
-		bytes    int64
-	}
-	locals := make([]local, conns)
-	var wg sync.WaitGroup
-	cpu0, cpuOK := processCPU(serverPID)
-	self0 := selfCPU()
-	start := time.Now()
-	for w := range conns {
-		wg.Go(func() {
-			l := &locals[w]
-			l.statuses = map[int]int{}
-			l.lat = make([]time.Duration, 0, n/conns+1)
-			var conn net.Conn
-			var br *bufio.Reader
-			defer func() {
-				if conn != nil {
-					conn.Close()
-				}
-			}()
-			fail := func(err error) {
-				if ctx.Err() == nil {
-					l.errors++
-					l.firstErr = cmp(l.firstErr, err)
-				}
-				if conn != nil {
-					conn.Close()
-					conn = nil
-				}
+	return measure(name, conns, n, func(l *tally) {
+		var conn net.Conn
+		var br *bufio.Reader
+		defer func() {
+			if conn != nil {
+				conn.Close()
 			}
-			for ctx.Err() == nil {
-				if int(issued.Add(1)) > n {
-					return
-				}
-				if conn == nil {
-					c, err := loopbackDialer(ctx, "tcp", u.Host)
-					if err != nil {
-						fail(err)
-						continue
-					}
-					conn, br = c, bufio.NewReaderSize(c, 64<<10)
-					context.AfterFunc(ctx, func() { c.SetDeadline(time.Unix(1, 0)) })
-				}
-				t0 := time.Now()
-				if _, err := conn.Write(reqBytes); err != nil {
-					fail(err)
-					continue
-				}
-				resp, err := http.ReadResponse(br, nil)
-				if err != nil {
-					fail(err)
-					continue
-				}
-				nb, err := io.Copy(io.Discard, resp.Body)
-				resp.Body.Close()
-				if err != nil {
-					fail(err)
-					continue
-				}
-				l.lat = append(l.lat, time.Since(t0))
-				l.statuses[resp.StatusCode]++
-				l.bytes += nb
-				if resp.Close {
-					conn.Close()
-					conn = nil
-				}
+		}()
+		fail := func(err error) {
+			if ctx.Err() == nil {
+				l.errors++
+				l.firstErr = cmp(l.firstErr, err)
 			}
-		})
-	}
-	wg.Wait()
-	r := &result{name: name, conns: conns, elapsed: time.Since(start), statuses: map[int]int{}}
-	if cpu1, ok := processCPU(serverPID); ok && cpuOK {
-		r.serverCPU = cpu1 - cpu0
-	}
-	r.clientCPU = selfCPU() - self0
-	for _, l := range locals {
-		r.latencies = append(r.latencies, l.lat...)
-		for k, v := range l.statuses {
-			r.statuses[k] += v
+			if conn != nil {
+				conn.Close()
+				conn = nil
+			}
 		}
-		r.errors += l.errors
-		r.bytes += l.bytes
-		r.firstErr = cmp(r.firstErr, l.firstErr)
-	}
-	return r
+		for ctx.Err() == nil {
+			if int(issued.Add(1)) > n {
+				return
+			}
+			if conn == nil {
+				c, err := loopbackDialer(ctx, "tcp", u.Host)
+				if err != nil {
+					fail(err)
+					continue
+				}
+				conn, br = c, bufio.NewReaderSize(c, 64<<10)
+				context.AfterFunc(ctx, func() { c.SetDeadline(time.Unix(1, 0)) })
+			}
+			t0 := time.Now()
+			if _, err := conn.Write(reqBytes); err != nil {
+				fail(err)
+				continue
+			}
+			resp, err := http.ReadResponse(br, nil)
+			if err != nil {
+				fail(err)
+				continue
+			}
+			nb, err := io.Copy(io.Discard, resp.Body)
+			resp.Body.Close()
+			if err != nil {
+				fail(err)
+				continue
+			}
+			l.lat = append(l.lat, time.Since(t0))
+			l.statuses[resp.StatusCode]++
+			l.bytes += nb
+			if resp.Close {
+				conn.Close()
+				conn = nil
+			}
+		}
+	})
 }
 
 // measureAdhoc: a new place per request (a cache miss each time) unless

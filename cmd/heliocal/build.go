@@ -17,25 +17,25 @@ import (
 	"heliocal/feed/serve"
 )
 
-// layout is where feeds live below the public base URL: publish writes
-// "<id>.ics" beside index.html, serve answers "/feeds/<id>.ics".
+// layout is the public base URL of the feeds: publish writes "<id>.ics"
+// beside index.html, and serve answers "/<id>.ics" as well as
+// "/feeds/<id>.ics", so one address works in both modes.
 type layout struct {
-	base     string // public base URL ending in "/", or ""
-	feedPath string // "" for publish, "feeds/" for serve
+	base string // public base URL ending in "/", or ""
 }
 
 func (l layout) feedURL(id string) string {
 	if l.base == "" {
 		return ""
 	}
-	return l.base + l.feedPath + id + ".ics"
+	return l.base + id + ".ics"
 }
 
-func newLayout(baseURL, feedPath string) layout {
+func newLayout(baseURL string) layout {
 	if baseURL != "" && !strings.HasSuffix(baseURL, "/") {
 		baseURL += "/"
 	}
-	return layout{base: baseURL, feedPath: feedPath}
+	return layout{base: baseURL}
 }
 
 // refreshInterval is the time between two scheduled refreshes, written into
@@ -75,8 +75,6 @@ func build(cfg *config.Config, now time.Time, l layout) ([]publish.Source, publi
 		Charts:       chartsFor(cfg, now),
 		MaxFeedBytes: cfg.Service.MaxFeedBytes,
 	}
-	// serve answers /<id>.ics as well as /feeds/<id>.ics, so the index's
-	// links and feeds.json URLs are the same in both modes
 	opts.BaseURL = l.base
 	return srcs, opts, nil
 }
@@ -85,6 +83,11 @@ func build(cfg *config.Config, now time.Time, l layout) ([]publish.Source, publi
 // bands, the year's events of the site's feeds as marks, and its
 // photoperiod thresholds as levels.
 func chartsFor(cfg *config.Config, now time.Time) func(context.Context, feed.Site) (*publish.SiteChart, error) {
+	// One ephemeris serves every site's chart: a site's local "today" is
+	// within a day of the UTC one, and the Sky keeps two days of margin.
+	var once sync.Once
+	var sky *feed.Sky
+	var skyErr error
 	return func(_ context.Context, fs feed.Site) (*publish.SiteChart, error) {
 		var site *config.Site
 		for i := range cfg.Sites {
@@ -99,9 +102,13 @@ func chartsFor(cfg *config.Config, now time.Time) func(context.Context, feed.Sit
 		t := now.In(loc)
 		first := time.Date(t.Year(), t.Month(), t.Day(), 0, 0, 0, 0, time.UTC)
 		last := first.AddDate(1, 0, -1)
-		sky, err := feed.NewSky(first, last)
-		if err != nil {
-			return nil, err
+		once.Do(func() {
+			u := now.UTC()
+			today := time.Date(u.Year(), u.Month(), u.Day(), 0, 0, 0, 0, time.UTC)
+			sky, skyErr = feed.NewSky(today.AddDate(0, 0, -1), today.AddDate(1, 0, 1))
+		})
+		if skyErr != nil {
+			return nil, skyErr
 		}
 		place := feed.PlaceOf(site)
 		profiles, err := sky.Profiles(place, first, last)

@@ -32,7 +32,7 @@ func runCheck(ctx context.Context, g *globals, now time.Time) error {
 	if err != nil {
 		return err
 	}
-	srcs, _, err := build(cfg, now, newLayout(cfg.Service.BaseURL, ""))
+	srcs, _, err := build(cfg, now, newLayout(cfg.Service.BaseURL))
 	if err != nil {
 		return err
 	}

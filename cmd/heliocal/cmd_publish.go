@@ -73,7 +73,7 @@ func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Tim
 	if _, ok := g.getenv("GOGC"); !ok {
 		debug.SetGCPercent(400)
 	}
-	srcs, opts, err := build(cfg, now, newLayout(base, ""))
+	srcs, opts, err := build(cfg, now, newLayout(base))
 	if err != nil {
 		return err
 	}

@@ -51,7 +51,7 @@ and the old feeds keep being served. SIGTERM or SIGINT shut down gracefully.` + 
 // "today" afresh at each call.
 func serveBuild(cfg *config.Config, base string) serve.BuildFunc {
 	return func(ctx context.Context) (*publish.Bundle, error) {
-		srcs, opts, err := build(cfg, time.Now(), newLayout(base, "feeds/"))
+		srcs, opts, err := build(cfg, time.Now(), newLayout(base))
 		if err != nil {
 			return nil, err
 		}
@@ -82,7 +82,7 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 	if o.listen != "" {
 		listen = o.listen
 	}
-	l := newLayout(base, "feeds/")
+	l := newLayout(base)
 	access := log
 	if !o.accessLog {
 		access = slog.New(slog.DiscardHandler)

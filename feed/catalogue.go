@@ -148,7 +148,7 @@ func PlaceOf(s *config.Site) Place {
 // without an event, and daily summaries. Entries are sorted by Start, then UID.
 func (sky *Sky) Entries(s *config.Site, feedID string, specs []config.KindSpec, first, last time.Time) ([]Entry, error) {
 	col := &collector{sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
-	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: map[string]int{}}
+	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: map[string]int{}, noted: map[string]bool{}}
 	days := int(col.last.Sub(col.first).Hours()/24) + 1
 	w.out = make([]Entry, 0, days*(len(specs)+1))
 	if err := col.prepare(altitudes(col.p.Observer, specs)...); err != nil {
@@ -233,6 +233,7 @@ type entryWriter struct {
 	feedID string
 	site   *siteInfo
 	seen   map[string]int
+	noted  map[string]bool // notes already written, by family and date
 	cats   map[string][]string
 	buf    []byte
 	out    []Entry
@@ -303,9 +304,10 @@ func (w *entryWriter) event(spec config.KindSpec, e Event) {
 func (w *entryWriter) note(n Note) {
 	title, desc := describeNote(w.site, n)
 	key := "note|" + n.Family + "|" + n.Date.Format(time.DateOnly)
-	if w.seen[w.feedID+"|"+key] > 0 {
+	if w.noted[key] {
 		return // the same state from a sibling kind (sunrise and sunset)
 	}
+	w.noted[key] = true
 	w.out = append(w.out, Entry{
 		UID:         w.uid(key),
 		Kind:        n.Kind.String(),

@@ -1,9 +1,7 @@
 package astro
 
 import (
-	"encoding/csv"
 	"math"
-	"os"
 	"sort"
 	"strconv"
 	"testing"
@@ -13,16 +11,9 @@ import (
 // gen_elp.go truncates.
 func loadCompleteELP(tb testing.TB) (l, b, r [4][]elpTerm) {
 	tb.Helper()
-	const path = "../testdata/reference/series/elpmpp02-de405-truncated.csv"
-	f, err := os.Open(path)
-	if err != nil {
-		tb.Fatal(err)
-	}
-	defer f.Close()
-	recs, err := csv.NewReader(f).ReadAll()
-	if err != nil {
-		tb.Fatal(err)
-	}
+	const path = "series/elpmpp02-de405-truncated.csv"
+	recs := readRecords(tb, path)
+	var err error
 	for i, rec := range recs[1:] {
 		var v [6]float64
 		for k := range 6 {

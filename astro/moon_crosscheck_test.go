@@ -1,10 +1,8 @@
 package astro
 
 import (
-	"encoding/csv"
 	"fmt"
 	"math"
-	"os"
 	"sort"
 	"strconv"
 	"testing"
@@ -54,17 +52,7 @@ type xcheckRow struct {
 
 func loadCrossCheck(tb testing.TB, file string) []xcheckRow {
 	tb.Helper()
-	f, err := os.Open("../testdata/reference/" + file)
-	if err != nil {
-		tb.Fatal(err)
-	}
-	defer f.Close()
-	r := csv.NewReader(f)
-	r.Comment = '#'
-	recs, err := r.ReadAll()
-	if err != nil {
-		tb.Fatal(err)
-	}
+	recs := readRecords(tb, file)
 	var out []xcheckRow
 	for i, rec := range recs[1:] {
 		row := xcheckRow{kind: rec[0], source: rec[8]}
@@ -282,17 +270,8 @@ func trimEnds(ts []time.Time, start, end time.Time) []time.Time {
 // ascension (as arc, ×cos δ) and declination, 0.5 km in the geometric
 // distance (ours is taken at t − light time: 0.1 km).
 func TestMoonPositionSwissEphemeris(t *testing.T) {
-	f, err := os.Open("../testdata/reference/crosscheck-moon-swisseph-positions.csv")
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	r := csv.NewReader(f)
-	r.Comment = '#'
-	recs, err := r.ReadAll()
-	if err != nil {
-		t.Fatal(err)
-	}
+	recs := readRecords(t, "crosscheck-moon-swisseph-positions.csv")
+	var err error
 	var dl, db, dr, da, dd []float64
 	for i, rec := range recs[1:] {
 		var v [6]float64

@@ -1,9 +1,7 @@
 package astro
 
 import (
-	"encoding/csv"
 	"math"
-	"os"
 	"sort"
 	"strconv"
 	"strings"
@@ -56,15 +54,7 @@ type usnoMoonRow struct {
 
 func loadUSNOMoonTimes(tb testing.TB) []usnoMoonRow {
 	tb.Helper()
-	f, err := os.Open("../testdata/reference/moon-times.csv")
-	if err != nil {
-		tb.Fatal(err)
-	}
-	defer f.Close()
-	recs, err := csv.NewReader(f).ReadAll()
-	if err != nil {
-		tb.Fatal(err)
-	}
+	recs := readRecords(tb, "moon-times.csv")
 	var out []usnoMoonRow
 	for _, r := range recs[1:] {
 		lat, err1 := strconv.ParseFloat(r[2], 64)

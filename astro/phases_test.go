@@ -1,9 +1,7 @@
 package astro
 
 import (
-	"encoding/csv"
 	"math"
-	"os"
 	"sort"
 	"testing"
 	"time"
@@ -111,15 +109,7 @@ type usnoPhase struct {
 
 func loadUSNOPhases(tb testing.TB) []usnoPhase {
 	tb.Helper()
-	f, err := os.Open("../testdata/reference/moon-phases.csv")
-	if err != nil {
-		tb.Fatal(err)
-	}
-	defer f.Close()
-	recs, err := csv.NewReader(f).ReadAll()
-	if err != nil {
-		tb.Fatal(err)
-	}
+	recs := readRecords(tb, "moon-phases.csv")
 	var out []usnoPhase
 	for _, r := range recs[1:] {
 		k, ok := phaseKindByName[r[1]]

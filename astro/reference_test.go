@@ -19,18 +19,29 @@ import (
 // row names its source in its "source" column; see
 // testdata/reference/README.md).
 
+// readRecords reads a CSV file below testdata/reference (name may contain
+// a sub-directory, e.g. "series/vsop87d-earth.csv"), header included; lines
+// starting with '#' are comments.
+func readRecords(tb testing.TB, name string) [][]string {
+	tb.Helper()
+	f, err := os.Open(filepath.Join("..", "testdata", "reference", filepath.FromSlash(name)))
+	if err != nil {
+		tb.Fatal(err)
+	}
+	defer f.Close()
+	r := csv.NewReader(f)
+	r.Comment = '#'
+	rows, err := r.ReadAll()
+	if err != nil {
+		tb.Fatalf("%s: %v", name, err)
+	}
+	return rows
+}
+
 // readCSV reads a reference table as maps keyed by the header.
 func readCSV(t testing.TB, name string) []map[string]string {
 	t.Helper()
-	f, err := os.Open(filepath.Join("..", "testdata", "reference", name))
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	rows, err := csv.NewReader(f).ReadAll()
-	if err != nil {
-		t.Fatalf("%s: %v", name, err)
-	}
+	rows := readRecords(t, name)
 	var out []map[string]string
 	for _, r := range rows[1:] {
 		m := make(map[string]string, len(r))

@@ -1,10 +1,8 @@
 package astro
 
 import (
-	"encoding/csv"
 	"errors"
 	"math"
-	"os"
 	"strconv"
 	"testing"
 	"time"
@@ -30,15 +28,7 @@ func TestVSOP87CheckValue(t *testing.T) {
 
 // fullVSOP87 reads the complete series of testdata/reference/series.
 func fullVSOP87(t *testing.T) (L, B, R [][]vsopTerm) {
-	f, err := os.Open("../testdata/reference/series/vsop87d-earth.csv")
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	rows, err := csv.NewReader(f).ReadAll()
-	if err != nil {
-		t.Fatal(err)
-	}
+	rows := readRecords(t, "series/vsop87d-earth.csv")
 	m := map[string]*[][]vsopTerm{"L": &L, "B": &B, "R": &R}
 	for _, r := range rows[1:] {
 		p, _ := strconv.Atoi(r[1])

@@ -1,7 +1,6 @@
 package astro
 
 import (
-	"errors"
 	"fmt"
 	"math"
 	"slices"
@@ -144,26 +143,17 @@ func (e *MoonEphemeris) fractionCrossings(thr, a, b float64, out []darkEvent) []
 // (0..1) below which a Moon above the horizon still counts as dark; 0
 // requires the Moon to be down. The nights must lie within Coverage().
 func (e *MoonEphemeris) DarkWindows(o Observer, loc *time.Location, first, last time.Time, maxFraction float64) ([]Night, error) {
-	if loc == nil {
-		return nil, errors.New("astro: DarkWindows: nil location")
-	}
-	if err := o.Validate(); err != nil {
+	start, stop, err := localDates("DarkWindows", loc, first, last, 12)
+	if err != nil {
 		return nil, err
 	}
 	if !(maxFraction >= 0 && maxFraction <= 1) {
 		return nil, &InputError{"moon fraction threshold", maxFraction, "must be within 0..1"}
 	}
-	y, m, d := first.In(loc).Date()
-	start := time.Date(y, m, d, 12, 0, 0, 0, loc)
-	y, m, d = last.In(loc).Date()
-	stop := time.Date(y, m, d+1, 12, 0, 0, 0, loc)
-	if !start.Before(stop) {
-		return nil, fmt.Errorf("astro: DarkWindows: last date %s is before the first %s", last.In(loc).Format(time.DateOnly), first.In(loc).Format(time.DateOnly))
-	}
-	if err := e.checkSpan(start, stop); err != nil {
+	st, err := e.query(o, start, stop)
+	if err != nil {
 		return nil, err
 	}
-	st := newSite(o)
 	a, b := unixSeconds(start), unixSeconds(stop)
 
 	// Conditions at the start, then every change in [a, b).

@@ -115,6 +115,36 @@ type coverage struct{ from, to time.Time }
 // Coverage returns the span in which the ephemeris answers queries.
 func (c coverage) Coverage() (from, to time.Time) { return c.from, c.to }
 
+// query checks the observer and the span [from, to] of a query and returns
+// the observer's site for the track search.
+func (c coverage) query(o Observer, from, to time.Time) (*site, error) {
+	if err := o.Validate(); err != nil {
+		return nil, err
+	}
+	if err := c.checkSpan(from, to); err != nil {
+		return nil, err
+	}
+	return newSite(o), nil
+}
+
+// localDates returns the instants at hour:00 local time on first's date and
+// on the day after last's date (dates read in loc): the span of the local
+// dates first..last. what names the calling function in errors.
+func localDates(what string, loc *time.Location, first, last time.Time, hour int) (start, stop time.Time, err error) {
+	if loc == nil {
+		return start, stop, fmt.Errorf("astro: %s: nil location", what)
+	}
+	y, m, d := first.In(loc).Date()
+	start = time.Date(y, m, d, hour, 0, 0, 0, loc)
+	y, m, d = last.In(loc).Date()
+	stop = time.Date(y, m, d+1, hour, 0, 0, 0, loc)
+	if !start.Before(stop) {
+		return start, stop, fmt.Errorf("astro: %s: last date %s is before the first %s", what,
+			last.In(loc).Format(time.DateOnly), first.In(loc).Format(time.DateOnly))
+	}
+	return start, stop, nil
+}
+
 // checkSpan returns a *RangeError when from or to lies outside the coverage.
 func (c coverage) checkSpan(from, to time.Time) error {
 	for _, t := range [2]time.Time{from, to} {
@@ -243,25 +273,21 @@ type Transit struct {
 // SunTransits returns the Sun's upper transits (local hour angle 0: solar
 // noon) in [from, to), one per day at every latitude, including polar night.
 func (e *Ephemeris) SunTransits(o Observer, from, to time.Time) ([]Transit, error) {
-	if err := o.Validate(); err != nil {
+	st, err := e.query(o, from, to)
+	if err != nil {
 		return nil, err
 	}
-	if err := e.checkSpan(from, to); err != nil {
-		return nil, err
-	}
-	return e.sun.transitList(newSite(o), from, to), nil
+	return e.sun.transitList(st, from, to), nil
 }
 
 // SunAltitude returns the topocentric geometric altitude of the Sun's
 // centre (degrees, no refraction) at t.
 func (e *Ephemeris) SunAltitude(o Observer, t time.Time) (float64, error) {
-	if err := o.Validate(); err != nil {
+	st, err := e.query(o, t, t)
+	if err != nil {
 		return 0, err
 	}
-	if err := e.checkSpan(t, t); err != nil {
-		return 0, err
-	}
-	return e.sun.altitude(newSite(o), t), nil
+	return e.sun.altitude(st, t), nil
 }
 
 // State says whether a threshold is crossed during a date.
@@ -303,18 +329,12 @@ type Day struct {
 // (e.g. the Sun sets just after midnight and again before the next one at
 // high latitude). The dates must lie within Coverage().
 func (e *Ephemeris) SunDays(o Observer, altitude float64, loc *time.Location, first, last time.Time) ([]Day, error) {
-	if loc == nil {
-		return nil, errors.New("astro: SunDays: nil location")
+	start, stop, err := localDates("SunDays", loc, first, last, 0)
+	if err != nil {
+		return nil, err
 	}
 	if err := o.Validate(); err != nil {
 		return nil, err
-	}
-	y, m, d := first.In(loc).Date()
-	start := time.Date(y, m, d, 0, 0, 0, 0, loc)
-	y, m, d = last.In(loc).Date()
-	stop := time.Date(y, m, d+1, 0, 0, 0, 0, loc)
-	if !start.Before(stop) {
-		return nil, fmt.Errorf("astro: SunDays: last date %s is before the first %s", last.In(loc).Format(time.DateOnly), first.In(loc).Format(time.DateOnly))
 	}
 	cs, err := e.SunCrossings(o, altitude, start, stop)
 	if err != nil {

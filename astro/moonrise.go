@@ -1,8 +1,6 @@
 package astro
 
 import (
-	"errors"
-	"fmt"
 	"math"
 	"slices"
 	"time"
@@ -246,13 +244,10 @@ func rootInBracket(f func(float64) float64, a, fa, b, fb, x float64) float64 {
 // topocentric Moon (see moonrise.go). The span must lie within Coverage()
 // (else a *RangeError); an invalid observer gives an *InputError.
 func (e *MoonEphemeris) MoonRiseSet(o Observer, from, to time.Time) ([]Crossing, error) {
-	if err := o.Validate(); err != nil {
+	st, err := e.query(o, from, to)
+	if err != nil {
 		return nil, err
 	}
-	if err := e.checkSpan(from, to); err != nil {
-		return nil, err
-	}
-	st := newSite(o)
 	a, b := unixSeconds(from), unixSeconds(to)
 	cs := e.moonCrossings(o, st, e.moon.extrema(st, a, b), a, b)
 	out := make([]Crossing, 0, len(cs))
@@ -276,25 +271,21 @@ func (e *MoonEphemeris) MoonRiseSet(o Observer, from, to time.Time) ([]Crossing,
 // [from, to), with the topocentric geometric altitude of the centre. A date has no transit about
 // once a month (the Moon transits about 50 minutes later each day).
 func (e *MoonEphemeris) MoonTransits(o Observer, from, to time.Time) ([]Transit, error) {
-	if err := o.Validate(); err != nil {
+	st, err := e.query(o, from, to)
+	if err != nil {
 		return nil, err
 	}
-	if err := e.checkSpan(from, to); err != nil {
-		return nil, err
-	}
-	return e.moon.transitList(newSite(o), from, to), nil
+	return e.moon.transitList(st, from, to), nil
 }
 
 // MoonAltitude returns the topocentric geometric altitude of the Moon's
 // centre (degrees, no refraction) at t.
 func (e *MoonEphemeris) MoonAltitude(o Observer, t time.Time) (float64, error) {
-	if err := o.Validate(); err != nil {
+	st, err := e.query(o, t, t)
+	if err != nil {
 		return 0, err
 	}
-	if err := e.checkSpan(t, t); err != nil {
-		return 0, err
-	}
-	return e.moon.altitude(newSite(o), t), nil
+	return e.moon.altitude(st, t), nil
 }
 
 // moonUp reports whether the Moon's upper limb is above the (refracted)
@@ -313,18 +304,12 @@ func (e *MoonEphemeris) moonUp(o Observer, st *site, sec float64) bool {
 // neither: the Moon stays up (or down) the whole date. The dates must lie
 // within Coverage().
 func (e *MoonEphemeris) MoonDays(o Observer, loc *time.Location, first, last time.Time) ([]Day, error) {
-	if loc == nil {
-		return nil, errors.New("astro: MoonDays: nil location")
+	start, stop, err := localDates("MoonDays", loc, first, last, 0)
+	if err != nil {
+		return nil, err
 	}
 	if err := o.Validate(); err != nil {
 		return nil, err
-	}
-	y, m, d := first.In(loc).Date()
-	start := time.Date(y, m, d, 0, 0, 0, 0, loc)
-	y, m, d = last.In(loc).Date()
-	stop := time.Date(y, m, d+1, 0, 0, 0, 0, loc)
-	if !start.Before(stop) {
-		return nil, fmt.Errorf("astro: MoonDays: last date %s is before the first %s", last.In(loc).Format(time.DateOnly), first.In(loc).Format(time.DateOnly))
 	}
 	cs, err := e.MoonRiseSet(o, start, stop)
 	if err != nil {

@@ -3,8 +3,8 @@
 // configuration and window always give the same entries, with the same UIDs.
 //
 // Sub-packages render and deliver those entries: feed/ical writes RFC 5545
-// iCalendar, feed/publish writes files atomically, feed/serve serves them over
-// HTTP and feed/schedule refreshes them.
+// iCalendar, feed/publish writes files atomically and feed/serve serves them
+// over HTTP, refreshed on the schedule of heliocal/internal/schedule.
 package feed
 
 import "time"

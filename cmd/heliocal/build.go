@@ -13,8 +13,8 @@ import (
 	"heliocal/feed"
 	"heliocal/feed/ical"
 	"heliocal/feed/publish"
-	"heliocal/feed/schedule"
 	"heliocal/feed/serve"
+	"heliocal/internal/schedule"
 )
 
 // layout is the public base URL of the feeds: publish writes "<id>.ics"

@@ -42,7 +42,7 @@ import (
 
 	"heliocal/config"
 	"heliocal/feed/publish"
-	"heliocal/feed/schedule"
+	"heliocal/internal/schedule"
 )
 
 // BuildFunc renders every configured feed. It must not modify a Bundle it

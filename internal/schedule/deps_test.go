@@ -16,11 +16,11 @@ func TestDeps(t *testing.T) {
 	}
 	for _, p := range strings.Fields(string(out)) {
 		switch {
-		case p == "heliocal/feed/schedule", p == "github.com/robfig/cron/v3":
+		case p == "heliocal/internal/schedule", p == "github.com/robfig/cron/v3":
 		case strings.HasPrefix(p, "heliocal/"):
-			t.Errorf("feed/schedule imports %s: it must take a function instead", p)
+			t.Errorf("internal/schedule imports %s: it must take a function instead", p)
 		default:
-			t.Errorf("feed/schedule imports %s: only the standard library and robfig/cron are allowed", p)
+			t.Errorf("internal/schedule imports %s: only the standard library and robfig/cron are allowed", p)
 		}
 	}
 }

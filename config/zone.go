@@ -76,10 +76,13 @@ func (e *ZoneError) Error() string {
 	return fmt.Sprintf("unknown time zone %q (%s)", e.Name, e.Hint)
 }
 
+//go:generate go run gen_zonenames.go
+
 //go:embed zonenames.txt
 var zoneNamesText string
 
-// zoneNames are the tz database's zone names, for suggestions.
+// zoneNames are the tz database's zone names, for suggestions, generated
+// from the Go toolchain's tz data by gen_zonenames.go.
 var zoneNames = func() []string {
 	var names []string
 	for _, line := range strings.Split(zoneNamesText, "\n") {

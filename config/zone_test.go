@@ -2,6 +2,7 @@ package config
 
 import (
 	"errors"
+	"os/exec"
 	"strings"
 	"testing"
 	"time"
@@ -71,5 +72,40 @@ func TestValidateBuiltInCode(t *testing.T) {
 	want := "sites[0].timezone feeds[0].kinds[0].kind feeds[0].kinds[1].kind feeds[0].kinds[2].kind"
 	if got := strings.Join(paths, " "); got != want {
 		t.Errorf("paths %q, want %q\n%v", got, want, err)
+	}
+}
+
+// TestZoneNamesMatchToolchain: zonenames.txt is what gen_zonenames.go makes
+// from the running Go toolchain's tz database (the data the heliocal binary
+// embeds), so suggestions and completion offer exactly the zones it knows.
+// After a Go upgrade, run `go generate ./config`.
+func TestZoneNamesMatchToolchain(t *testing.T) {
+	if testing.Short() {
+		t.Skip("compiles and runs the generator")
+	}
+	goBin, err := exec.LookPath("go")
+	if err != nil {
+		t.Skip("no go command to run the generator")
+	}
+	out, err := exec.Command(goBin, "run", "gen_zonenames.go", "-o", "-").Output()
+	if err != nil {
+		t.Fatalf("go run gen_zonenames.go: %v", err)
+	}
+	if string(out) == zoneNamesText {
+		return
+	}
+	want := strings.Split(string(out), "\n")
+	got := strings.Split(zoneNamesText, "\n")
+	for i := 0; i < max(len(want), len(got)); i++ {
+		var w, g string
+		if i < len(want) {
+			w = want[i]
+		}
+		if i < len(got) {
+			g = got[i]
+		}
+		if w != g {
+			t.Fatalf("zonenames.txt differs from the toolchain's tz database at line %d:\n got %q\nwant %q\nrun `go generate ./config`", i+1, g, w)
+		}
 	}
 }

@@ -125,6 +125,7 @@ func TestEventsBadInput(t *testing.T) {
 		{"format", []string{"events", "--lat", "0", "--lon", "0", "--format", "xml"}, "--format: \"xml\""},
 		{"site", []string{"events", "--site", "nowhere"}, "nowhere"},
 		{"flag", []string{"events", "--latitude", "1"}, "latitude"},
+		{"shard count", []string{"publish", "--shard", "0/10001", "--out", "unused"}, `--shard: publish: shard "0/10001": count must be at most 10000`},
 		{"config", []string{"check", "--config", filepath.Join("..", "..", "testdata", "config", "bad-latitude.yaml")}, "latitude"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {

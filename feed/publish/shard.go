@@ -52,7 +52,13 @@ func InShard(feedID string, i, n int) bool {
 	return h.Sum64()%uint64(n) == uint64(i)
 }
 
-// ParseShard reads a shard written "i/n", with i 0-based: "0/4" … "3/4".
+// MaxShards is the largest shard count ParseShard accepts. The last shard to
+// finish reads one manifest per shard, so the count is bounded; ten thousand
+// workers is far more than any fleet needs (each holds at least one feed).
+const MaxShards = 10_000
+
+// ParseShard reads a shard written "i/n", with i 0-based: "0/4" … "3/4", and
+// n at most MaxShards.
 func ParseShard(s string) (Shard, error) {
 	a, b, ok := strings.Cut(strings.TrimSpace(s), "/")
 	if !ok {
@@ -64,6 +70,9 @@ func ParseShard(s string) (Shard, error) {
 	}
 	if n < 1 {
 		return Shard{}, fmt.Errorf("publish: shard %q: count must be at least 1", s)
+	}
+	if n > MaxShards {
+		return Shard{}, fmt.Errorf("publish: shard %q: count must be at most %d", s, MaxShards)
 	}
 	i, err := strconv.Atoi(strings.TrimSpace(a))
 	if err != nil {

@@ -47,7 +47,7 @@ func TestParseShard(t *testing.T) {
 		in   string
 		want Shard
 	}{
-		{"0/1", Shard{0, 1}}, {"0/4", Shard{0, 4}}, {"3/4", Shard{3, 4}}, {" 2/8 ", Shard{2, 8}},
+		{"0/1", Shard{0, 1}}, {"0/4", Shard{0, 4}}, {"9999/10000", Shard{9999, 10000}}, {"3/4", Shard{3, 4}}, {" 2/8 ", Shard{2, 8}},
 	}
 	for _, tc := range good {
 		got, err := ParseShard(tc.in)
@@ -62,6 +62,8 @@ func TestParseShard(t *testing.T) {
 		{"4/4", `publish: shard "4/4": index must be within 0..3 (0-based, like JOB_COMPLETION_INDEX)`},
 		{"-1/4", `publish: shard "-1/4": index must be within 0..3 (0-based, like JOB_COMPLETION_INDEX)`},
 		{"1/0", `publish: shard "1/0": count must be at least 1`},
+		{"0/10001", `publish: shard "0/10001": count must be at most 10000`},
+		{"0/99999999999999999", `publish: shard "0/99999999999999999": count must be at most 10000`},
 		{"3", `publish: shard "3": want i/n, e.g. "0/4" (i is 0-based)`},
 		{"a/4", `publish: shard "a/4": index "a" is not a whole number`},
 		{"1/four", `publish: shard "1/four": count "four" is not a whole number`},

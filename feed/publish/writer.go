@@ -25,6 +25,12 @@ const DefaultTempMaxAge = 15 * time.Minute
 // running as another user. (os.CreateTemp makes 0600.)
 const FileMode fs.FileMode = 0o644
 
+// DirMode is the mode of the output directory and of any parent directory
+// the writer creates for it, set explicitly so that the umask (077 on many
+// hardened hosts) cannot make the files unreachable for a web server.
+// Directories that already exist keep their mode.
+const DirMode fs.FileMode = 0o755
+
 // tempFile is what the writer needs of a temporary file; *os.File has it.
 // Tests wrap a real file to inject a failure part-way.
 type tempFile interface {
@@ -45,7 +51,7 @@ type tempFile interface {
 // several processes) may share a directory as long as they write different
 // names or the same bytes.
 type Writer struct {
-	// Dir is the output directory; it is created (0755) when missing.
+	// Dir is the output directory; it is created (DirMode, 0755) when missing.
 	Dir string
 	// TempMaxAge is the age past which leftover temporary files of ours are
 	// removed at the start of WriteBundle; zero means DefaultTempMaxAge.
@@ -124,7 +130,7 @@ func (w *Writer) prepare() (removed int, err error) {
 	if w.Dir == "" {
 		return 0, errors.New("publish: output directory is empty")
 	}
-	if err := os.MkdirAll(w.Dir, 0o755); err != nil {
+	if err := mkdirAll(w.Dir); err != nil {
 		return 0, fmt.Errorf("publish: output directory: %w", err)
 	}
 	fi, err := os.Stat(w.Dir)
@@ -135,6 +141,30 @@ func (w *Writer) prepare() (removed int, err error) {
 		return 0, fmt.Errorf("publish: output directory %s: not a directory", w.Dir)
 	}
 	return w.removeStaleTemps()
+}
+
+// mkdirAll creates dir and its missing parents with DirMode whatever the
+// umask: each directory it creates is chmod-ed after os.Mkdir (which applies
+// the umask). Directories that already exist are left as they are.
+func mkdirAll(dir string) error {
+	if fi, err := os.Stat(dir); err == nil {
+		if !fi.IsDir() {
+			return fmt.Errorf("%s: not a directory", dir)
+		}
+		return nil
+	}
+	if parent := filepath.Dir(dir); parent != dir {
+		if err := mkdirAll(parent); err != nil {
+			return err
+		}
+	}
+	if err := os.Mkdir(dir, DirMode); err != nil {
+		if errors.Is(err, fs.ErrExist) {
+			return nil // made by a concurrent worker meanwhile
+		}
+		return err
+	}
+	return os.Chmod(dir, DirMode)
 }
 
 // removeStaleTemps removes our own leftover temporary files (".<name>.tmp-<digits>",

@@ -117,33 +117,55 @@ func keys(m map[string][]byte) []string {
 	return out
 }
 
+// Published files are 0644 and the directories publish creates 0755
+// whatever the umask: a hardened host's 077 must not hide them from a web
+// server running as another user, and 000 must not make them writable by
+// everyone. (The umask is process-wide: this test is not parallel.)
 func TestPublishedFilesAreWorldReadable(t *testing.T) {
-	old := syscall.Umask(0o022)
-	defer syscall.Umask(old)
-	dir := t.TempDir()
-	checkModes := func(when string) {
-		t.Helper()
-		for name := range snapshot(t, dir) {
-			fi, err := os.Stat(filepath.Join(dir, name))
-			if err != nil {
+	for _, umask := range []int{0o022, 0o077, 0o000} {
+		t.Run(fmt.Sprintf("umask %03o", umask), func(t *testing.T) {
+			old := syscall.Umask(umask)
+			defer syscall.Umask(old)
+			root := t.TempDir()
+			dir := filepath.Join(root, "www", "sky", "public")
+			checkModes := func(when string) {
+				t.Helper()
+				for _, d := range []string{filepath.Join(root, "www"), filepath.Join(root, "www", "sky"), dir} {
+					fi, err := os.Stat(d)
+					if err != nil {
+						t.Fatal(err)
+					}
+					if fi.Mode().Perm() != DirMode {
+						t.Errorf("%s: directory %s has mode %v, want %v", when, d, fi.Mode().Perm(), DirMode)
+					}
+				}
+				files := snapshot(t, dir)
+				if len(files) < 5 {
+					t.Fatalf("%s: only %d files published", when, len(files))
+				}
+				for name := range files {
+					fi, err := os.Stat(filepath.Join(dir, name))
+					if err != nil {
+						t.Fatal(err)
+					}
+					if fi.Mode().Perm() != FileMode {
+						t.Errorf("%s: %s has mode %v, want %v (a web server running as another user must read it)", when, name, fi.Mode().Perm(), FileMode)
+					}
+				}
+			}
+			publishTo(t, dir, "", testOptions())
+			checkModes("new files")
+			// A file already holding the right bytes but with CreateTemp's 0600 (a
+			// copy made by hand, or an older tool) is fixed in place.
+			if err := os.Chmod(filepath.Join(dir, "feeds.json"), 0o600); err != nil {
 				t.Fatal(err)
 			}
-			if fi.Mode().Perm() != 0o644 {
-				t.Errorf("%s: %s has mode %v, want 0644 (a web server running as another user must read it)", when, name, fi.Mode().Perm())
-			}
-		}
+			publishTo(t, dir, "", testOptions())
+			checkModes("unchanged files")
+			publishTo(t, dir, " (revised)", testOptions())
+			checkModes("replaced files")
+		})
 	}
-	publishTo(t, dir, "", testOptions())
-	checkModes("new files")
-	// A file already holding the right bytes but with CreateTemp's 0600 (a
-	// copy made by hand, or an older tool) is fixed in place.
-	if err := os.Chmod(filepath.Join(dir, "feeds.json"), 0o600); err != nil {
-		t.Fatal(err)
-	}
-	publishTo(t, dir, "", testOptions())
-	checkModes("unchanged files")
-	publishTo(t, dir, " (revised)", testOptions())
-	checkModes("replaced files")
 }
 
 // faultyFile is a real temporary file whose writes fail with err once limit

@@ -48,7 +48,7 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-elevation.yaml", "sites[0].elevation", "12000", "must be within -500..9000 metres", "not feet", 0},
 		{"bad-horizon.yaml", "sites[0].horizon", "60", "must be within -5..45 degrees", "", 0},
 		{"bad-timezone.yaml", "sites[0].timezone", "Europe/Zurik", "unknown time zone", `"Europe/Zurich"`, 0},
-		{"missing-timezone.yaml", "sites[0].timezone", "", "is required", "IANA", 0},
+		{"missing-latitude.yaml", "sites[0].latitude", "", "is required", "degrees", 0},
 		{"unknown-kind.yaml", "feeds[0].kinds[0]", "sunrize", "unknown kind", `did you mean "sunrise"?`, 0},
 		{"unknown-kind-mapping.yaml", "feeds[0].kinds[1].kind", "moonrize", "unknown kind", `"moonrise"`, 0},
 		{"duplicate-site-id.yaml", "sites[1].id", "north-field", "duplicate site id (also sites[0].id)", "", 0},

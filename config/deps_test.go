@@ -18,6 +18,11 @@ func TestImports(t *testing.T) {
 		"github.com/spf13/viper":              true,
 		"github.com/go-viper/mapstructure/v2": true,
 		"github.com/robfig/cron/v3":           true,
+		// the offline zone map behind ZoneAt
+		"github.com/ringsaturn/tzf":               true,
+		"github.com/ringsaturn/tzf-rel-lite":      true,
+		"github.com/ringsaturn/tzf/gen/go/tzf/v1": true,
+		"google.golang.org/protobuf/proto":        true,
 	}
 	for _, imp := range strings.Fields(string(out)) {
 		first, _, _ := strings.Cut(imp, "/")

@@ -101,6 +101,7 @@ func parse(data []byte, format string, env LookupEnv) (c *Config, err error) {
 		return nil, fmt.Errorf("%w as %s: %s", ErrUnreadable, format, syntaxMessage(err, data))
 	}
 	explicit := explicitWindows(v.Get("feeds"))
+	located := explicitCoordinates(v.Get("sites"))
 
 	c = new(Config)
 	var problems []FieldError
@@ -113,6 +114,17 @@ func parse(data []byte, format string, env LookupEnv) (c *Config, err error) {
 	fromEnv, envProblems := applyEnv(c, env)
 	problems = append(problems, envProblems...)
 	applyDefaults(c, explicit)
+	for i := range c.Sites {
+		for j, key := range [2]string{"latitude", "longitude"} {
+			if i < len(located) && !located[i][j] {
+				problems = append(problems, FieldError{Path: fmt.Sprintf("sites[%d].%s", i, key), Msg: "is required",
+					Hint: "degrees, north and east positive, e.g. latitude: 47.07, longitude: -3.2"})
+			}
+		}
+	}
+	if len(problems) == 0 {
+		problems = append(problems, inferZones(c)...)
+	}
 
 	var verr *ValidationError
 	if err := c.Validate(); errors.As(err, &verr) {
@@ -219,6 +231,53 @@ func explicitWindows(raw any) map[int][2]bool {
 	return out
 }
 
+// explicitCoordinates records, for each site of the raw document, whether
+// latitude and longitude were written: a missing one must not become 0°.
+func explicitCoordinates(raw any) [][2]bool {
+	list, ok := raw.([]any)
+	if !ok {
+		return nil
+	}
+	out := make([][2]bool, len(list))
+	for i, item := range list {
+		m, ok := item.(map[string]any)
+		if !ok {
+			out[i] = [2]bool{true, true} // not a mapping: the decoder says so
+			continue
+		}
+		for k := range m {
+			switch strings.ToLower(k) {
+			case "latitude":
+				out[i][0] = true
+			case "longitude":
+				out[i][1] = true
+			}
+		}
+	}
+	return out
+}
+
+// inferZones gives every site without a timezone the zone at its
+// coordinates and marks it ZoneInferred. Sites whose coordinates are out of
+// range are left to Validate.
+func inferZones(c *Config) []FieldError {
+	var problems []FieldError
+	for i := range c.Sites {
+		s := &c.Sites[i]
+		if s.TimeZone.Location != nil || !(s.Latitude >= -90 && s.Latitude <= 90) || !(s.Longitude >= -180 && s.Longitude <= 180) {
+			continue
+		}
+		z, err := ZoneLocationAt(s.Latitude, s.Longitude)
+		if err != nil {
+			problems = append(problems, FieldError{Path: fmt.Sprintf("sites[%d].timezone", i), Msg: "not given, and not found from the coordinates: " + err.Error(),
+				Hint: `give an IANA time zone name such as "Europe/Vienna"`})
+			continue
+		}
+		s.TimeZone, s.ZoneInferred = z, true
+	}
+	return problems
+}
+
 // applyEnv overrides deployment settings from the environment and returns
 // which paths were overridden by which variable.
 func applyEnv(c *Config, env LookupEnv) (map[string]string, []FieldError) {
@@ -300,9 +359,10 @@ func applyDefaults(c *Config, explicit map[int][2]bool) {
 }
 
 // ApplyDefaults fills the defaults of a configuration built in code: empty
-// service settings, site names and feed titles, and the window of feeds
-// whose days_back and days_ahead are both 0. Parse applies the defaults
-// itself (keeping an explicit 0).
+// service settings, site names and feed titles, the window of feeds whose
+// days_back and days_ahead are both 0, and the zone of sites without one
+// (from their coordinates, see ZoneAt; a failure is left to Validate).
+// Parse applies the defaults itself (keeping an explicit 0).
 func (c *Config) ApplyDefaults() {
 	explicit := map[int][2]bool{}
 	for i, f := range c.Feeds {
@@ -311,6 +371,7 @@ func (c *Config) ApplyDefaults() {
 		}
 	}
 	applyDefaults(c, explicit)
+	inferZones(c)
 }
 
 // valueError is a decoding failure that knows the offending value.

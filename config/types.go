@@ -30,8 +30,11 @@ type Site struct {
 	Latitude  float64 `mapstructure:"latitude"`  // degrees, −90..90, north positive
 	Longitude float64 `mapstructure:"longitude"` // degrees, −180..180, east positive
 	Elevation float64 `mapstructure:"elevation"` // metres above sea level
-	TimeZone  Zone    `mapstructure:"timezone"`  // IANA name
+	TimeZone  Zone    `mapstructure:"timezone"`  // IANA name; when absent, the zone at the coordinates (ZoneAt)
 	Horizon   float64 `mapstructure:"horizon"`   // altitude of the visible horizon in degrees (hills), default 0
+	// ZoneInferred is true when the file gave no timezone and TimeZone was
+	// taken from the coordinates: the commands say so.
+	ZoneInferred bool `mapstructure:"-"`
 }
 
 // Feed is one subscribable calendar.

@@ -348,8 +348,8 @@ func (s *Site) validate(ps *problems, p string) {
 	if !(s.Horizon >= MinHorizon && s.Horizon <= MaxHorizon) {
 		ps.add(p+".horizon", ftoa(s.Horizon), fmt.Sprintf("must be within %g..%g degrees", MinHorizon, MaxHorizon), "the altitude of the visible skyline; 0 for a flat horizon")
 	}
-	if s.TimeZone.Location == nil {
-		ps.add(p+".timezone", "", "is required", `an IANA time zone name such as "Europe/Vienna"`)
+	if s.TimeZone.Location == nil && s.Latitude >= -90 && s.Latitude <= 90 && s.Longitude >= -180 && s.Longitude <= 180 {
+		ps.add(p+".timezone", "", "is not set", `an IANA time zone name such as "Europe/Vienna"; ApplyDefaults takes it from the coordinates`)
 	}
 }
 

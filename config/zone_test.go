@@ -69,7 +69,10 @@ func TestValidateBuiltInCode(t *testing.T) {
 	for _, p := range ps {
 		paths = append(paths, p.Path)
 	}
-	want := "sites[0].timezone feeds[0].kinds[0].kind feeds[0].kinds[1].kind feeds[0].kinds[2].kind"
+	if c.Sites[0].TimeZone.Name() != "Africa/Ndjamena" || !c.Sites[0].ZoneInferred { // 10° N 20° E: Chad
+		t.Errorf("ApplyDefaults: zone %q (inferred %v), want Africa/Ndjamena from the coordinates", c.Sites[0].TimeZone.Name(), c.Sites[0].ZoneInferred)
+	}
+	want := "feeds[0].kinds[0].kind feeds[0].kinds[1].kind feeds[0].kinds[2].kind"
 	if got := strings.Join(paths, " "); got != want {
 		t.Errorf("paths %q, want %q\n%v", got, want, err)
 	}

@@ -9,6 +9,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"heliocal/config"
 	"heliocal/feed/ical"
 )
 
@@ -40,10 +41,20 @@ func runCheck(ctx context.Context, g *globals, now time.Time) error {
 	fmt.Fprintf(w, "configuration: %s (valid)\n\n", src)
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	fmt.Fprintln(tw, "SITE\tNAME\tLATITUDE\tLONGITUDE\tELEVATION\tZONE")
+	var inferred []string
 	for _, s := range cfg.Sites {
-		fmt.Fprintf(tw, "%s\t%s\t%.4f\t%.4f\t%g m\t%s\n", s.ID, s.Name, s.Latitude, s.Longitude, s.Elevation, s.TimeZone)
+		zone := s.TimeZone.Name()
+		if s.ZoneInferred {
+			zone += " (from the coordinates)"
+			inferred = append(inferred, fmt.Sprintf("note: site %s has no timezone: using %s, the zone in force at %.4f, %.4f; add timezone: to choose another",
+				s.ID, config.DescribeZone(s.TimeZone.Location, now), s.Latitude, s.Longitude))
+		}
+		fmt.Fprintf(tw, "%s\t%s\t%.4f\t%.4f\t%g m\t%s\n", s.ID, s.Name, s.Latitude, s.Longitude, s.Elevation, zone)
 	}
 	tw.Flush()
+	for _, line := range inferred {
+		fmt.Fprintln(w, line)
+	}
 	fmt.Fprintln(w)
 	limit := cfg.Service.MaxFeedBytes
 	var warnings []string

@@ -31,7 +31,9 @@ type eventsOptions struct {
 	kinds     string
 	format    string
 	maxLit    float64
-	placeFlag bool // --lat/--lon given
+	placeFlag bool // --lat or --lon given
+	latGiven  bool
+	lonGiven  bool
 	now       time.Time
 }
 
@@ -41,8 +43,10 @@ func newEventsCommand(g *globals) *cobra.Command {
 		Use:   "events",
 		Short: "List the events of chosen kinds for a site or any place",
 		Long: `List the events of chosen kinds for a configured site (--site) or for any place
-(--lat, --lon, --tz, optionally --elev and --horizon), for the local dates --from..--to
-(inclusive, in the place's time zone).
+(--lat and --lon, both required, optionally --tz, --elev and --horizon), for the local dates
+--from..--to (inclusive, in the place's time zone). Without --tz the zone in force at the
+place is taken from an offline map of the zone boundaries (the nautical zone Etc/GMT±N at
+sea), and a note on stderr names it.
 
 Kinds (comma-separated): ` + strings.Join(config.KindNames, ", ") + `
 Parametrised kinds: sun-altitude:<degrees> (e.g. sun-altitude:-3), photoperiod:<duration>
@@ -54,7 +58,8 @@ csv (both).` + exitStatusHelp,
   heliocal events --site cairnmoor --kinds dark-window,moon-phases --format json`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
-			o.placeFlag = cmd.Flags().Changed("lat") || cmd.Flags().Changed("lon")
+			o.latGiven, o.lonGiven = cmd.Flags().Changed("lat"), cmd.Flags().Changed("lon")
+			o.placeFlag = o.latGiven || o.lonGiven
 			o.now = time.Now()
 			return runEvents(cmd.Context(), g, o)
 		},
@@ -65,7 +70,7 @@ csv (both).` + exitStatusHelp,
 	f.Float64Var(&o.lon, "lon", 0, "longitude in degrees, east positive (−180..180)")
 	f.Float64Var(&o.elev, "elev", 0, "elevation in metres above sea level")
 	f.Float64Var(&o.horizon, "horizon", 0, "altitude of the visible horizon in degrees (hills)")
-	f.StringVar(&o.tz, "tz", "", "IANA time zone of the place, e.g. Europe/Vienna (default UTC)")
+	f.StringVar(&o.tz, "tz", "", "IANA time zone of the place, e.g. Europe/Vienna (default: the zone in force at --lat/--lon)")
 	f.StringVar(&o.from, "from", "", "first local date, YYYY-MM-DD (default today)")
 	f.StringVar(&o.to, "to", "", "last local date, YYYY-MM-DD, inclusive (default from + 6 days)")
 	f.StringVar(&o.kinds, "kinds", defaultKinds, "comma-separated event kinds")
@@ -97,8 +102,13 @@ func eventsPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 		}
 		return nil, badInput("--site: %q: no such site (configured: %s)", o.site, strings.Join(ids, ", "))
 	}
-	if !o.placeFlag {
-		return nil, badInput("give a place: --site ID, or --lat and --lon (with --tz)")
+	switch {
+	case !o.latGiven && !o.lonGiven:
+		return nil, badInput("give a place: --site ID, or --lat and --lon (and --tz, else the zone at the place is used)")
+	case !o.latGiven:
+		return nil, badInput("--lat: missing: give both --lat and --lon (--lon %v was given)", o.lon)
+	case !o.lonGiven:
+		return nil, badInput("--lon: missing: give both --lat and --lon (--lat %v was given)", o.lat)
 	}
 	s := &config.Site{ID: "place", Latitude: o.lat, Longitude: o.lon, Elevation: o.elev, Horizon: o.horizon}
 	switch {
@@ -111,11 +121,13 @@ func eventsPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 	case math.IsNaN(o.horizon) || o.horizon < -5 || o.horizon > 45:
 		return nil, badInput("--horizon: %v: must be within -5..45 degrees", o.horizon)
 	}
-	tz := o.tz
-	if tz == "" {
-		tz = "UTC"
-	}
-	if err := s.TimeZone.UnmarshalText([]byte(tz)); err != nil {
+	if o.tz == "" {
+		z, err := config.ZoneLocationAt(o.lat, o.lon)
+		if err != nil {
+			return nil, fmt.Errorf("--tz not given, and the zone at the place could not be found: %w", err)
+		}
+		s.TimeZone, s.ZoneInferred = z, true
+	} else if err := s.TimeZone.UnmarshalText([]byte(o.tz)); err != nil {
 		return nil, badInput("--tz: %w", err)
 	}
 	s.Name = fmt.Sprintf("%.4f, %.4f", o.lat, o.lon)
@@ -158,6 +170,14 @@ func runEvents(_ context.Context, g *globals, o *eventsOptions) error {
 		return err
 	}
 	loc := site.TimeZone.Location
+	if site.ZoneInferred {
+		how := "the configuration gives site " + site.ID + " no timezone"
+		if o.site == "" {
+			how = "no --tz given"
+		}
+		fmt.Fprintf(g.stderr, "heliocal: %s: using %s, the zone in force at %.4f, %.4f (give --tz or timezone to choose)\n",
+			how, config.DescribeZone(loc, o.now), site.Latitude, site.Longitude)
+	}
 	today := o.now.In(loc)
 	from := time.Date(today.Year(), today.Month(), today.Day(), 0, 0, 0, 0, time.UTC)
 	if o.from != "" {

@@ -1,0 +1,71 @@
+package main
+
+import (
+	"encoding/json"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// A place needs both coordinates: a missing one is named, never taken as 0°.
+func TestEventsCoordinatesRequired(t *testing.T) {
+	for _, tc := range []struct {
+		args []string
+		want string
+	}{
+		{[]string{"events", "--lat", "23.1", "--tz", "America/Havana"}, "--lon: missing"},
+		{[]string{"events", "--lon", "-82.4", "--tz", "America/Havana"}, "--lat: missing"},
+		{[]string{"events", "--tz", "America/Havana"}, "--lat and --lon"},
+	} {
+		code, out, errOut := runCLI(t, tc.args...)
+		if code != exitInput || !strings.Contains(errOut, tc.want) || out != "" {
+			t.Errorf("%v: exit %d, stderr %q, stdout %q; want exit 2 naming %q and no events", tc.args, code, errOut, out, tc.want)
+		}
+	}
+}
+
+// Without --tz the zone in force at the place is used, and a note on stderr
+// names it (zones: the tz database; nautical zones at sea, common practice).
+func TestEventsZoneFromCoordinates(t *testing.T) {
+	for _, tc := range []struct {
+		lat, lon, zone, note string
+	}{
+		{"23.13", "-82.38", "America/Havana", "America/Havana (UTC−0"},    // Havana
+		{"-33.45", "-70.67", "America/Santiago", "America/Santiago (UTC"}, // Santiago de Chile
+		{"0", "-30", "Etc/GMT+2", "Etc/GMT+2 (UTC−02:00)"},                // mid-Atlantic
+	} {
+		code, out, errOut := runCLI(t, "events", "--lat", tc.lat, "--lon", tc.lon, "--from", "2027-03-01", "--to", "2027-03-01",
+			"--kinds", "sunrise", "--format", "json")
+		if code != 0 {
+			t.Fatalf("%s, %s: exit %d: %s", tc.lat, tc.lon, code, errOut)
+		}
+		var doc struct{ Site struct{ TimeZone string } }
+		if err := json.Unmarshal([]byte(out), &doc); err != nil {
+			t.Fatal(err)
+		}
+		if doc.Site.TimeZone != tc.zone {
+			t.Errorf("%s, %s: timezone %q, want %q", tc.lat, tc.lon, doc.Site.TimeZone, tc.zone)
+		}
+		if !strings.Contains(errOut, "no --tz given: using "+tc.note) {
+			t.Errorf("%s, %s: stderr %q does not name the zone used (%s)", tc.lat, tc.lon, errOut, tc.note)
+		}
+	}
+	// an explicit --tz wins and needs no note
+	code, out, errOut := runCLI(t, "events", "--lat", "23.13", "--lon", "-82.38", "--tz", "UTC", "--from", "2027-03-01", "--to", "2027-03-01", "--kinds", "sunrise")
+	if code != 0 || errOut != "" || !strings.Contains(out, "UTC") {
+		t.Errorf("--tz UTC: exit %d, stderr %q\n%s", code, errOut, out)
+	}
+}
+
+// check names the zone it chose for a site without timezone.
+func TestCheckInferredZone(t *testing.T) {
+	code, out, errOut := runCLI(t, "check", "--config", filepath.Join("..", "..", "testdata", "config", "missing-timezone.yaml"))
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	for _, w := range []string{"America/Havana (from the coordinates)", "site cane-field has no timezone: using America/Havana (UTC−0"} {
+		if !strings.Contains(out, w) {
+			t.Errorf("check output lacks %q:\n%s", w, out)
+		}
+	}
+}

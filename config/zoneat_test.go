@@ -1,0 +1,186 @@
+package config
+
+import (
+	"strings"
+	"sync"
+	"testing"
+	"time"
+)
+
+// The zone of each place below is a fact (the tz database's own comments
+// and the places' laws; common practice); the coordinates are town centres
+// given from memory, to about 0.01°.
+var zonePlaces = []struct {
+	place    string
+	lat, lon float64
+	zone     string
+}{
+	{"Vienna", 48.21, 16.37, "Europe/Vienna"},
+	{"Havana (clocks skip midnight at the spring change)", 23.13, -82.38, "America/Havana"},
+	{"Santiago de Chile", -33.45, -70.67, "America/Santiago"},
+	{"Auckland", -36.85, 174.76, "Pacific/Auckland"},
+	{"Hobart (Tasmania)", -42.88, 147.33, "Australia/Hobart"},
+	{"Kathmandu (UTC+05:45)", 27.71, 85.32, "Asia/Kathmandu"},
+	{"Reykjavík", 64.15, -21.94, "Atlantic/Reykjavik"},
+	{"Longyearbyen (Svalbard)", 78.22, 15.65, "Arctic/Longyearbyen"},
+	// near borders
+	{"Broken Hill: New South Wales, on South Australia's time", -31.95, 141.45, "Australia/Broken_Hill"},
+	{"El Paso, Texas: mountain time", 31.76, -106.49, "America/Denver"},
+	{"Ciudad Juárez, across the river from El Paso", 31.69, -106.42, "America/Ciudad_Juarez"},
+	{"San Diego", 32.72, -117.16, "America/Los_Angeles"},
+	{"Tijuana, 25 km south of San Diego", 32.53, -117.04, "America/Tijuana"},
+	{"Büsingen am Hochrhein, a German exclave in Switzerland", 47.697, 8.690, "Europe/Busingen"},
+	{"Schaffhausen, Swiss town 5 km west of Büsingen", 47.697, 8.634, "Europe/Zurich"},
+	{"Gary, Indiana: central time", 41.59, -87.35, "America/Chicago"},
+	{"Indianapolis", 39.77, -86.16, "America/Indiana/Indianapolis"},
+	{"Kaliningrad", 54.71, 20.51, "Europe/Kaliningrad"},
+	// at sea: nautical zones, 15° wide, centred on multiples of 15° (common practice)
+	{"mid-Atlantic on the equator", 0, -30, "Etc/GMT+2"},
+	{"North Pacific", 10, -150, "Etc/GMT+10"},
+	{"South Pacific", -40, -140, "Etc/GMT+9"},
+	{"Indian Ocean", -30, 80, "Etc/GMT-5"},
+	{"Gulf of Guinea, 0° 0°", 0, 0, "Etc/GMT"},
+}
+
+func TestZoneAtKnownPlaces(t *testing.T) {
+	for _, p := range zonePlaces {
+		got, err := ZoneAt(p.lat, p.lon)
+		if err != nil {
+			t.Errorf("%s (%v, %v): %v", p.place, p.lat, p.lon, err)
+			continue
+		}
+		if got != p.zone {
+			t.Errorf("%s (%v, %v): ZoneAt = %s, want %s", p.place, p.lat, p.lon, got, p.zone)
+		}
+	}
+}
+
+func TestZoneAtRefusesOutOfRange(t *testing.T) {
+	for _, c := range []struct {
+		lat, lon float64
+		word     string
+	}{{91, 0, "latitude"}, {-90.5, 0, "latitude"}, {0, 180.1, "longitude"}, {0, -181, "longitude"}} {
+		if _, err := ZoneAt(c.lat, c.lon); err == nil || !strings.Contains(err.Error(), c.word) {
+			t.Errorf("ZoneAt(%v, %v) = %v, want an error naming the %s", c.lat, c.lon, err, c.word)
+		}
+	}
+}
+
+// Every point of the globe gets a zone Go's tz database can load: the poles,
+// the date line, a grid over land and sea.
+func TestZoneAtEverywhereLoadable(t *testing.T) {
+	step := 10.0
+	if testing.Short() {
+		step = 30
+	}
+	for lat := -90.0; lat <= 90; lat += step {
+		for lon := -180.0; lon <= 180; lon += step {
+			if _, err := ZoneLocationAt(lat, lon); err != nil {
+				t.Errorf("ZoneLocationAt(%v, %v): %v", lat, lon, err)
+			}
+		}
+	}
+}
+
+func TestZoneAtConcurrent(t *testing.T) {
+	var wg sync.WaitGroup
+	for i := 0; i < 8; i++ {
+		wg.Go(func() {
+			if z, err := ZoneAt(48.21, 16.37); err != nil || z != "Europe/Vienna" {
+				t.Errorf("ZoneAt = %q, %v", z, err)
+			}
+		})
+	}
+	wg.Wait()
+}
+
+func TestNauticalZone(t *testing.T) {
+	// common practice: zone n covers longitudes 15n ± 7.5°, Etc/GMT signs inverted
+	for _, c := range []struct {
+		lon  float64
+		want string
+	}{{0, "Etc/GMT"}, {7.4, "Etc/GMT"}, {-30, "Etc/GMT+2"}, {45, "Etc/GMT-3"}, {-179, "Etc/GMT+12"}, {179, "Etc/GMT-12"}} {
+		if got := nauticalZone(c.lon); got != c.want {
+			t.Errorf("nauticalZone(%v) = %s, want %s", c.lon, got, c.want)
+		}
+	}
+}
+
+func TestDescribeZone(t *testing.T) {
+	at := time.Date(2027, 1, 15, 12, 0, 0, 0, time.UTC)
+	for _, c := range []struct{ zone, want string }{
+		{"Etc/GMT+5", "Etc/GMT+5 (UTC−05:00)"},
+		{"Europe/Vienna", "Europe/Vienna (UTC+01:00, CET)"},
+		{"Asia/Kathmandu", "Asia/Kathmandu (UTC+05:45)"},
+		{"America/Havana", "America/Havana (UTC−05:00, CST)"},
+	} {
+		loc, err := time.LoadLocation(c.zone)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got := DescribeZone(loc, at); got != c.want {
+			t.Errorf("DescribeZone(%s) = %q, want %q", c.zone, got, c.want)
+		}
+	}
+}
+
+// BenchmarkZoneAt measures a lookup once the map is loaded; the first call
+// (loading the map) is measured by BenchmarkZoneMapLoad.
+func BenchmarkZoneAt(b *testing.B) {
+	if _, err := ZoneAt(0, 0); err != nil {
+		b.Fatal(err)
+	}
+	b.ResetTimer()
+	for i := 0; b.Loop(); i++ {
+		p := zonePlaces[i%len(zonePlaces)]
+		_, _ = ZoneAt(p.lat, p.lon)
+	}
+}
+
+func BenchmarkZoneMapLoad(b *testing.B) {
+	for b.Loop() {
+		zoneFinder = sync.OnceValues(loadZoneMap)
+		if _, err := ZoneAt(0, 0); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// A site without a timezone gets the zone at its coordinates, marked as
+// inferred; a written one is kept as written.
+func TestSiteZoneInferred(t *testing.T) {
+	c, err := loadTestdata(t, "missing-timezone.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s := c.Sites[0]; s.TimeZone.Name() != "America/Havana" || !s.ZoneInferred {
+		t.Errorf("zone %q, inferred %v; want America/Havana from 22.95° N 82.30° W", s.TimeZone.Name(), s.ZoneInferred)
+	}
+	c = Demo()
+	for _, s := range c.Sites {
+		if s.ZoneInferred {
+			t.Errorf("site %s: zone %s marked inferred, but the demo names it", s.ID, s.TimeZone.Name())
+		}
+	}
+}
+
+// Missing coordinates are refused in every format, each at its own key.
+func TestSiteCoordinatesRequired(t *testing.T) {
+	for _, c := range []struct{ format, doc, path string }{
+		{"json", `{"sites":[{"id":"a","latitude":10,"timezone":"UTC"}],"feeds":[{"id":"f","site":"a","kinds":["sunrise"]}]}`, "sites[0].longitude"},
+		{"toml", "[[sites]]\nid = \"a\"\nlongitude = 10\ntimezone = \"UTC\"\n[[feeds]]\nid = \"f\"\nsite = \"a\"\nkinds = [\"sunrise\"]\n", "sites[0].latitude"},
+		{"yaml", "sites:\n  - id: a\n    Latitude: 10\n    LONGITUDE: 5\nfeeds:\n  - {id: f, site: a, kinds: [sunrise]}\n", ""},
+	} {
+		_, err := Parse(strings.NewReader(c.doc), c.format)
+		if c.path == "" {
+			if err != nil {
+				t.Errorf("%s: %v (keys in any case count as given)", c.format, err)
+			}
+			continue
+		}
+		ps := problemsOf(t, err)
+		if len(ps) != 1 || ps[0].Path != c.path || ps[0].Msg != "is required" {
+			t.Errorf("%s: %v, want %s: is required", c.format, err, c.path)
+		}
+	}
+}

@@ -1,9 +1,9 @@
 package astro
 
 import (
+	"context"
 	"fmt"
 	"math"
-	"slices"
 	"sort"
 	"time"
 )
@@ -138,25 +138,41 @@ func (e *MoonEphemeris) fractionCrossings(thr, a, b float64, out []darkEvent) []
 
 // DarkWindows returns one Night per local date from first to last inclusive
 // (dates read in loc; the clock part is ignored), each with the dark-sky
-// windows of the night that begins on the evening of that date (see
-// darksky.go for the definitions). maxFraction is the illuminated fraction
-// (0..1) below which a Moon above the horizon still counts as dark; 0
-// requires the Moon to be down. The nights must lie within Coverage().
-func (e *MoonEphemeris) DarkWindows(o Observer, loc *time.Location, first, last time.Time, maxFraction float64) ([]Night, error) {
-	start, stop, err := localDates("DarkWindows", loc, first, last, 12)
+// windows of the night that begins on the evening of that date: from local
+// noon of the date to local noon of the next (see the top of this file).
+// maxFraction is the illuminated fraction (0..1) below which a Moon above
+// the horizon still counts as dark; 0 requires the Moon to be down. The
+// nights must lie within Coverage(). It stops with ctx's error when ctx is
+// done.
+func (e *MoonEphemeris) DarkWindows(ctx context.Context, o Observer, loc *time.Location, first, last time.Time, maxFraction float64) ([]Night, error) {
+	dates, err := localDays(ctx, "DarkWindows", loc, first, last, 12)
 	if err != nil {
 		return nil, err
 	}
 	if !(maxFraction >= 0 && maxFraction <= 1) {
 		return nil, &InputError{"moon fraction threshold", maxFraction, "must be within 0..1"}
 	}
+	if len(dates) == 0 {
+		return nil, nil
+	}
+	start, stop := dates[0].start, dates[len(dates)-1].end
 	st, err := e.query(o, start, stop)
 	if err != nil {
 		return nil, err
 	}
 	a, b := unixSeconds(start), unixSeconds(stop)
+	state, evs := e.darkEvents(o, st, a, b, maxFraction)
+	spans, sunDark := darkSpans(state, evs, a, b)
+	return splitNights(ctx, loc, dates, spans, sunDark)
+}
 
-	// Conditions at the start, then every change in [a, b).
+// interval is a span [a, b) in Unix seconds.
+type interval struct{ a, b float64 }
+
+// darkEvents returns the three dark-sky conditions at a (Sun below −18°,
+// Moon up, Moon too bright when up) and every change of them in [a, b), in
+// order.
+func (e *MoonEphemeris) darkEvents(o Observer, st *site, a, b, maxFraction float64) ([3]bool, []darkEvent) {
 	sinDark := math.Sin(AstronomicalTwilight * deg2rad)
 	state := [3]bool{
 		e.sun.sun.sinAltitude(st, a) < sinDark,
@@ -177,27 +193,30 @@ func (e *MoonEphemeris) DarkWindows(o Observer, loc *time.Location, first, last 
 		evs = e.fractionCrossings(maxFraction, a, b, evs)
 	}
 	sort.Slice(evs, func(i, j int) bool { return evs[i].t < evs[j].t })
+	return state, evs
+}
 
-	dark := func() bool { return state[0] && !(state[1] && state[2]) }
-	type interval struct{ a, b float64 }
-	var spans []interval
-	var sunDark []interval // Sun below −18°, to tell the night states apart
+// darkSpans replays the condition changes evs from the state at a and
+// returns the dark spans and the spans of astronomical night (Sun below
+// −18°, which tells a moonlit night from one without astronomical night)
+// within [a, b).
+func darkSpans(state [3]bool, evs []darkEvent, a, b float64) (dark, sunDark []interval) {
+	isDark := func() bool { return state[0] && !(state[1] && state[2]) }
 	open, sunOpen := math.NaN(), math.NaN()
-	if dark() {
+	if isDark() {
 		open = a
 	}
 	if state[0] {
 		sunOpen = a
 	}
 	for _, ev := range evs {
-		was, sunWas := dark(), state[0]
+		was, sunWas := isDark(), state[0]
 		state[ev.id] = ev.on
-		now := dark()
-		switch {
+		switch now := isDark(); {
 		case !was && now:
 			open = ev.t
 		case was && !now:
-			spans = append(spans, interval{open, ev.t})
+			dark = append(dark, interval{open, ev.t})
 		}
 		switch {
 		case !sunWas && state[0]:
@@ -206,20 +225,29 @@ func (e *MoonEphemeris) DarkWindows(o Observer, loc *time.Location, first, last 
 			sunDark = append(sunDark, interval{sunOpen, ev.t})
 		}
 	}
-	if dark() {
-		spans = append(spans, interval{open, b})
+	if isDark() {
+		dark = append(dark, interval{open, b})
 	}
 	if state[0] {
 		sunDark = append(sunDark, interval{sunOpen, b})
 	}
+	return dark, sunDark
+}
 
-	var nights []Night
+// splitNights cuts the dark spans at each local noon into the nights of the
+// dates (noon to noon), with the state of a night without a window.
+func splitNights(ctx context.Context, loc *time.Location, dates []dateSpan, spans, sunDark []interval) ([]Night, error) {
+	nights := make([]Night, 0, len(dates))
 	i, j := 0, 0
-	for day := start; day.Before(stop); {
-		y, m, d := day.Date()
-		next := time.Date(y, m, d+1, 12, 0, 0, 0, loc)
-		n0, n1 := unixSeconds(day), unixSeconds(next)
-		night := Night{Date: time.Date(y, m, d, 0, 0, 0, 0, loc)}
+	for k, dt := range dates {
+		if k%64 == 0 {
+			if err := ctx.Err(); err != nil {
+				return nil, err
+			}
+		}
+		n0, n1 := unixSeconds(dt.start), unixSeconds(dt.end)
+		y, m, d := dt.date.Date()
+		night := Night{Date: DateStart(loc, y, m, d)}
 		for ; i < len(spans) && spans[i].b <= n0; i++ {
 		}
 		for k := i; k < len(spans) && spans[k].a < n1; k++ {
@@ -238,9 +266,8 @@ func (e *MoonEphemeris) DarkWindows(o Observer, loc *time.Location, first, last 
 			}
 		}
 		nights = append(nights, night)
-		day = next
 	}
-	return slices.Clip(nights), nil
+	return nights, nil
 }
 
 // Illumination returns the Moon's illumination at t as MoonIllumination

@@ -1,6 +1,7 @@
 package astro
 
 import (
+	"context"
 	"errors"
 	"math"
 	"testing"
@@ -58,7 +59,7 @@ func TestDarkWindowsBruteForce(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			nights, err := me.DarkWindows(tc.o, tc.zone, tc.date, tc.date.AddDate(0, 0, 9), tc.thr)
+			nights, err := me.DarkWindows(context.Background(), tc.o, tc.zone, tc.date, tc.date.AddDate(0, 0, 9), tc.thr)
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -107,7 +108,7 @@ func TestDarkWindowsProperties(t *testing.T) {
 	}
 	for _, lat := range []float64{-60, -35, 0, 20, 45, 60} {
 		o := Observer{Latitude: lat, Longitude: 30 - lat}
-		nights, err := me.DarkWindows(o, time.UTC, from, from.AddDate(1, 0, -1), 0.25)
+		nights, err := me.DarkWindows(context.Background(), o, time.UTC, from, from.AddDate(1, 0, -1), 0.25)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -148,7 +149,7 @@ func TestDarkWindowsStates(t *testing.T) {
 		t.Fatal(err)
 	}
 	for _, lat := range []float64{60, 55} {
-		nights, err := me.DarkWindows(Observer{Latitude: lat, Longitude: 10}, time.UTC, time.Date(2026, 6, 14, 0, 0, 0, 0, time.UTC), time.Date(2026, 6, 28, 0, 0, 0, 0, time.UTC), 1)
+		nights, err := me.DarkWindows(context.Background(), Observer{Latitude: lat, Longitude: 10}, time.UTC, time.Date(2026, 6, 14, 0, 0, 0, 0, time.UTC), time.Date(2026, 6, 28, 0, 0, 0, 0, time.UTC), 1)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -158,7 +159,7 @@ func TestDarkWindowsStates(t *testing.T) {
 			}
 		}
 	}
-	nights, err := me.DarkWindows(Observer{Latitude: 45, Longitude: 0}, time.UTC, time.Date(2026, 1, 2, 0, 0, 0, 0, time.UTC), time.Date(2026, 1, 3, 0, 0, 0, 0, time.UTC), 0)
+	nights, err := me.DarkWindows(context.Background(), Observer{Latitude: 45, Longitude: 0}, time.UTC, time.Date(2026, 1, 2, 0, 0, 0, 0, time.UTC), time.Date(2026, 1, 3, 0, 0, 0, 0, time.UTC), 0)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -180,15 +181,15 @@ func TestDarkWindowsBadInput(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	_, err = me.DarkWindows(Observer{Latitude: 45}, time.UTC, day, day, 1.5)
+	_, err = me.DarkWindows(context.Background(), Observer{Latitude: 45}, time.UTC, day, day, 1.5)
 	if !errors.Is(err, ErrInvalidInput) || err.Error() != "astro: moon fraction threshold 1.5: must be within 0..1" {
 		t.Errorf("threshold 1.5: %v", err)
 	}
-	_, err = me.DarkWindows(Observer{Latitude: 95}, time.UTC, day, day, 0)
+	_, err = me.DarkWindows(context.Background(), Observer{Latitude: 95}, time.UTC, day, day, 0)
 	if !errors.Is(err, ErrInvalidInput) {
 		t.Errorf("latitude 95: %v", err)
 	}
-	_, err = me.DarkWindows(Observer{Latitude: 45}, time.UTC, day.AddDate(0, 0, 30), day.AddDate(0, 0, 31), 0)
+	_, err = me.DarkWindows(context.Background(), Observer{Latitude: 45}, time.UTC, day.AddDate(0, 0, 30), day.AddDate(0, 0, 31), 0)
 	if !errors.Is(err, ErrOutOfRange) {
 		t.Errorf("outside coverage: %v", err)
 	}

@@ -1,10 +1,10 @@
 package astro
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"math"
-	"slices"
 	"time"
 )
 
@@ -125,24 +125,6 @@ func (c coverage) query(o Observer, from, to time.Time) (*site, error) {
 		return nil, err
 	}
 	return newSite(o), nil
-}
-
-// localDates returns the instants at hour:00 local time on first's date and
-// on the day after last's date (dates read in loc): the span of the local
-// dates first..last. what names the calling function in errors.
-func localDates(what string, loc *time.Location, first, last time.Time, hour int) (start, stop time.Time, err error) {
-	if loc == nil {
-		return start, stop, fmt.Errorf("astro: %s: nil location", what)
-	}
-	y, m, d := first.In(loc).Date()
-	start = time.Date(y, m, d, hour, 0, 0, 0, loc)
-	y, m, d = last.In(loc).Date()
-	stop = time.Date(y, m, d+1, hour, 0, 0, 0, loc)
-	if !start.Before(stop) {
-		return start, stop, fmt.Errorf("astro: %s: last date %s is before the first %s", what,
-			last.In(loc).Format(time.DateOnly), first.In(loc).Format(time.DateOnly))
-	}
-	return start, stop, nil
 }
 
 // checkSpan returns a *RangeError when from or to lies outside the coverage.
@@ -324,47 +306,29 @@ type Day struct {
 // SunDays returns one Day per local date from first to last inclusive
 // (dates read in loc; the clock part of first and last is ignored), with
 // the crossings of altitude (degrees, geometric; o.RiseSetAltitude() for
-// sunrise and sunset) that fall within each date, from its local midnight to
-// the next. A date may hold zero, one or two crossings of each direction
-// (e.g. the Sun sets just after midnight and again before the next one at
-// high latitude). The dates must lie within Coverage().
-func (e *Ephemeris) SunDays(o Observer, altitude float64, loc *time.Location, first, last time.Time) ([]Day, error) {
-	start, stop, err := localDates("SunDays", loc, first, last, 0)
+// sunrise and sunset) that fall within each date, from its first instant
+// (local midnight, or the clock change where midnight is skipped; see
+// DateStart) to the next date's. A date may hold zero, one or two crossings
+// of each direction (e.g. the Sun sets just after midnight and again before
+// the next one at high latitude). A date that does not exist in loc has no
+// Day. The dates must lie within Coverage(). It stops with ctx's error when
+// ctx is done.
+func (e *Ephemeris) SunDays(ctx context.Context, o Observer, altitude float64, loc *time.Location, first, last time.Time) ([]Day, error) {
+	spans, err := localDays(ctx, "SunDays", loc, first, last, 0)
 	if err != nil {
 		return nil, err
 	}
 	if err := o.Validate(); err != nil {
 		return nil, err
 	}
-	cs, err := e.SunCrossings(o, altitude, start, stop)
+	if len(spans) == 0 {
+		return nil, nil
+	}
+	cs, err := e.SunCrossings(o, altitude, spans[0].start, spans[len(spans)-1].end)
 	if err != nil {
 		return nil, err
 	}
 	st := newSite(o)
 	s0 := math.Sin(altitude * deg2rad)
-	var days []Day
-	i := 0
-	for day := start; day.Before(stop); {
-		y, m, d := day.Date()
-		next := time.Date(y, m, d+1, 0, 0, 0, 0, loc)
-		dd := Day{Date: day}
-		for ; i < len(cs) && cs[i].Time.Before(next); i++ {
-			if cs[i].Direction == Rising {
-				dd.Rising = append(dd.Rising, cs[i].Time)
-			} else {
-				dd.Setting = append(dd.Setting, cs[i].Time)
-			}
-		}
-		if len(dd.Rising)+len(dd.Setting) == 0 {
-			mid := unixSeconds(day) + 0.5*unixSeconds(next) - 0.5*unixSeconds(day)
-			if e.sun.sinAltitude(st, mid) > s0 {
-				dd.State = AlwaysAbove
-			} else {
-				dd.State = AlwaysBelow
-			}
-		}
-		days = append(days, dd)
-		day = next
-	}
-	return slices.Clip(days), nil
+	return groupDays(ctx, spans, cs, func(sec float64) bool { return e.sun.sinAltitude(st, sec) > s0 })
 }

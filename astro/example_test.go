@@ -1,6 +1,7 @@
 package astro_test
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"time"
@@ -152,7 +153,7 @@ func ExampleEphemeris_SunDays() {
 		return
 	}
 	site := astro.Observer{Latitude: 48.2, Longitude: 16.4, Elevation: 180}
-	days, err := eph.SunDays(site, site.RiseSetAltitude(), loc, first, last)
+	days, err := eph.SunDays(context.Background(), site, site.RiseSetAltitude(), loc, first, last)
 	if err != nil {
 		fmt.Println(err)
 		return
@@ -176,7 +177,7 @@ func ExampleEphemeris_SunDays_polarNight() {
 		return
 	}
 	site := astro.Observer{Latitude: 78.2, Longitude: 15.6}
-	days, err := eph.SunDays(site, site.RiseSetAltitude(), time.UTC, first, first)
+	days, err := eph.SunDays(context.Background(), site, site.RiseSetAltitude(), time.UTC, first, first)
 	if err != nil {
 		fmt.Println(err)
 		return

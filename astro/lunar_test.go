@@ -1,6 +1,7 @@
 package astro
 
 import (
+	"context"
 	"math"
 	"testing"
 	"time"
@@ -94,7 +95,7 @@ func TestMoonRiseSetAlternate(t *testing.T) {
 	for i := range 50 {
 		lat := -89 + float64(i/2)*7.25
 		o := Observer{Latitude: lat, Longitude: math.Remainder(100-2*lat+float64(i%2)*137, 360)}
-		days, err := me.MoonDays(o, time.UTC, from, last)
+		days, err := me.MoonDays(context.Background(), o, time.UTC, from, last)
 		if err != nil {
 			t.Fatal(err)
 		}

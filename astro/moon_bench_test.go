@@ -1,6 +1,7 @@
 package astro
 
 import (
+	"context"
 	"testing"
 	"time"
 )
@@ -25,7 +26,7 @@ func BenchmarkMoonSiteYear(b *testing.B) {
 		if err != nil {
 			b.Fatal(err)
 		}
-		nights, err := me.DarkWindows(o, loc, from, to.AddDate(0, 0, -1), 0)
+		nights, err := me.DarkWindows(context.Background(), o, loc, from, to.AddDate(0, 0, -1), 0)
 		if err != nil {
 			b.Fatal(err)
 		}

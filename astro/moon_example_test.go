@@ -1,6 +1,7 @@
 package astro_test
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"time"
@@ -76,7 +77,7 @@ func ExampleMoonEphemeris_MoonDays() {
 		return
 	}
 	o := astro.Observer{Latitude: 38.889444, Longitude: -77.035278}
-	days, err := me.MoonDays(o, est, day, day)
+	days, err := me.MoonDays(context.Background(), o, est, day, day)
 	if err != nil {
 		fmt.Println(err)
 		return
@@ -111,7 +112,7 @@ func ExampleMoonEphemeris_DarkWindows() {
 		fmt.Println(err)
 		return
 	}
-	nights, err := me.DarkWindows(astro.Observer{Latitude: 48.2, Longitude: 16.4}, cet, first, first.AddDate(0, 0, 6), 0)
+	nights, err := me.DarkWindows(context.Background(), astro.Observer{Latitude: 48.2, Longitude: 16.4}, cet, first, first.AddDate(0, 0, 6), 0)
 	if err != nil {
 		fmt.Println(err)
 		return

@@ -1,6 +1,7 @@
 package astro
 
 import (
+	"context"
 	"errors"
 	"testing"
 	"time"
@@ -37,8 +38,11 @@ func TestMoonBadInput(t *testing.T) {
 			_, err := me.MoonRiseSet(Observer{}, day.AddDate(0, 0, 10), day.AddDate(0, 0, 11))
 			return err
 		}, ErrOutOfRange, ""},
-		{"MoonDays nil location", func() error { _, err := me.MoonDays(Observer{}, nil, day, day); return err }, nil, "astro: MoonDays: nil location"},
-		{"MoonDays reversed", func() error { _, err := me.MoonDays(Observer{}, time.UTC, day.AddDate(0, 0, 1), day); return err }, nil,
+		{"MoonDays nil location", func() error { _, err := me.MoonDays(context.Background(), Observer{}, nil, day, day); return err }, nil, "astro: MoonDays: nil location"},
+		{"MoonDays reversed", func() error {
+			_, err := me.MoonDays(context.Background(), Observer{}, time.UTC, day.AddDate(0, 0, 1), day)
+			return err
+		}, nil,
 			"astro: MoonDays: last date 2026-05-01 is before the first 2026-05-02"},
 		{"MoonFrom latitude -91", func() error { _, err := MoonFrom(Observer{Latitude: -91}, day); return err }, ErrInvalidInput,
 			"astro: observer latitude -91: must be within -90..90 degrees"},
@@ -89,11 +93,11 @@ func TestMoonRangeEnds(t *testing.T) {
 		if err != nil {
 			t.Fatalf("NewMoonEphemeris %v: %v", span, err)
 		}
-		days, err := me.MoonDays(Observer{Latitude: 40}, time.UTC, span[0], span[1].Add(-time.Second))
+		days, err := me.MoonDays(context.Background(), Observer{Latitude: 40}, time.UTC, span[0], span[1].Add(-time.Second))
 		if err != nil || len(days) < 28 {
 			t.Errorf("MoonDays %v: %d days, %v", span, len(days), err)
 		}
-		nights, err := me.DarkWindows(Observer{Latitude: 40}, time.UTC, span[0], span[1].AddDate(0, 0, -2), 0.2)
+		nights, err := me.DarkWindows(context.Background(), Observer{Latitude: 40}, time.UTC, span[0], span[1].AddDate(0, 0, -2), 0.2)
 		if err != nil || len(nights) < 27 {
 			t.Errorf("DarkWindows %v: %d nights, %v", span, len(nights), err)
 		}

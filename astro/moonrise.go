@@ -1,8 +1,8 @@
 package astro
 
 import (
+	"context"
 	"math"
-	"slices"
 	"time"
 )
 
@@ -298,47 +298,27 @@ func (e *MoonEphemeris) moonUp(o Observer, st *site, sec float64) bool {
 // MoonDays returns one Day per local date from first to last inclusive
 // (dates read in loc; the clock part of first and last is ignored), with
 // the moonrises (Rising) and moonsets (Setting) within each date, from its
-// local midnight to the next. A date commonly has no moonrise or no moonset
-// (about once a month each): then that list is empty and State is still
-// Crosses. State is AlwaysAbove or AlwaysBelow only when the date has
-// neither: the Moon stays up (or down) the whole date. The dates must lie
-// within Coverage().
-func (e *MoonEphemeris) MoonDays(o Observer, loc *time.Location, first, last time.Time) ([]Day, error) {
-	start, stop, err := localDates("MoonDays", loc, first, last, 0)
+// first instant to the next date's (as in SunDays). A date commonly has no
+// moonrise or no moonset (about once a month each): then that list is empty
+// and State is still Crosses. State is AlwaysAbove or AlwaysBelow only when
+// the date has neither: the Moon stays up (or down) the whole date. The
+// dates must lie within Coverage(). It stops with ctx's error when ctx is
+// done.
+func (e *MoonEphemeris) MoonDays(ctx context.Context, o Observer, loc *time.Location, first, last time.Time) ([]Day, error) {
+	spans, err := localDays(ctx, "MoonDays", loc, first, last, 0)
 	if err != nil {
 		return nil, err
 	}
 	if err := o.Validate(); err != nil {
 		return nil, err
 	}
-	cs, err := e.MoonRiseSet(o, start, stop)
+	if len(spans) == 0 {
+		return nil, nil
+	}
+	cs, err := e.MoonRiseSet(o, spans[0].start, spans[len(spans)-1].end)
 	if err != nil {
 		return nil, err
 	}
 	st := newSite(o)
-	var days []Day
-	i := 0
-	for day := start; day.Before(stop); {
-		y, m, d := day.Date()
-		next := time.Date(y, m, d+1, 0, 0, 0, 0, loc)
-		dd := Day{Date: day}
-		for ; i < len(cs) && cs[i].Time.Before(next); i++ {
-			if cs[i].Direction == Rising {
-				dd.Rising = append(dd.Rising, cs[i].Time)
-			} else {
-				dd.Setting = append(dd.Setting, cs[i].Time)
-			}
-		}
-		if len(dd.Rising)+len(dd.Setting) == 0 {
-			mid := 0.5 * (unixSeconds(day) + unixSeconds(next))
-			if e.moonUp(o, st, mid) {
-				dd.State = AlwaysAbove
-			} else {
-				dd.State = AlwaysBelow
-			}
-		}
-		days = append(days, dd)
-		day = next
-	}
-	return slices.Clip(days), nil
+	return groupDays(ctx, spans, cs, func(sec float64) bool { return e.moonUp(o, st, sec) })
 }

@@ -1,6 +1,7 @@
 package astro
 
 import (
+	"context"
 	"math"
 	"sort"
 	"strconv"
@@ -113,7 +114,7 @@ func TestMoonTimesUSNO(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		days, err := me.MoonDays(o, r.zone, r.date, r.date)
+		days, err := me.MoonDays(context.Background(), o, r.zone, r.date, r.date)
 		if err != nil || len(days) != 1 {
 			t.Fatalf("%s: MoonDays: %v (%d days)", r.id, err, len(days))
 		}

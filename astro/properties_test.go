@@ -1,6 +1,7 @@
 package astro
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"sync"
@@ -248,7 +249,7 @@ func TestDayStates(t *testing.T) {
 		first := time.Date(2027, 1, 1, 0, 0, 0, 0, loc)
 		last := time.Date(2027, 12, 31, 0, 0, 0, 0, loc)
 		for _, h0 := range []float64{o.RiseSetAltitude(), CivilTwilight, AstronomicalTwilight} {
-			days, err := e.SunDays(o, h0, loc, first, last)
+			days, err := e.SunDays(context.Background(), o, h0, loc, first, last)
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -293,7 +294,7 @@ func TestDayStates(t *testing.T) {
 func TestPolarSeasons(t *testing.T) {
 	e := propEphemeris(t)
 	o := Observer{Latitude: 78.2, Longitude: 15.6}
-	days, err := e.SunDays(o, o.RiseSetAltitude(), time.UTC, time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC), time.Date(2027, 12, 31, 0, 0, 0, 0, time.UTC))
+	days, err := e.SunDays(context.Background(), o, o.RiseSetAltitude(), time.UTC, time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC), time.Date(2027, 12, 31, 0, 0, 0, 0, time.UTC))
 	if err != nil {
 		t.Fatal(err)
 	}

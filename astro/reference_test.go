@@ -1,6 +1,7 @@
 package astro
 
 import (
+	"context"
 	"encoding/csv"
 	"errors"
 	"math"
@@ -476,7 +477,7 @@ func TestSunTimesUSNO(t *testing.T) {
 			continue
 		}
 		if r["kind"] == "polar_day" || r["kind"] == "polar_night" {
-			days, err := usnoEph.SunDays(o, o.RiseSetAltitude(), loc, date, date)
+			days, err := usnoEph.SunDays(context.Background(), o, o.RiseSetAltitude(), loc, date, date)
 			if err != nil {
 				t.Fatal(err)
 			}

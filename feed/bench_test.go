@@ -1,6 +1,7 @@
 package feed
 
 import (
+	"context"
 	"testing"
 	"time"
 
@@ -29,7 +30,7 @@ func BenchmarkEntriesSiteYear(b *testing.B) {
 	var n int
 	b.ReportAllocs()
 	for b.Loop() {
-		es, err := sk.Entries(s, "bench", specs, first, last)
+		es, err := sk.Entries(context.Background(), s, "bench", specs, first, last)
 		if err != nil {
 			b.Fatal(err)
 		}

@@ -1,6 +1,7 @@
 package feed
 
 import (
+	"context"
 	"crypto/sha256"
 	"encoding/hex"
 	"fmt"
@@ -77,10 +78,10 @@ func (c *Catalogue) window(f *config.Feed, s *config.Site) (time.Time, time.Time
 }
 
 // Calendars builds every feed of the configuration, in configuration order.
-func (c *Catalogue) Calendars() ([]*Calendar, error) {
+func (c *Catalogue) Calendars(ctx context.Context) ([]*Calendar, error) {
 	out := make([]*Calendar, 0, len(c.cfg.Feeds))
 	for i := range c.cfg.Feeds {
-		cal, err := c.Calendar(&c.cfg.Feeds[i])
+		cal, err := c.Calendar(ctx, &c.cfg.Feeds[i])
 		if err != nil {
 			return nil, err
 		}
@@ -89,19 +90,21 @@ func (c *Catalogue) Calendars() ([]*Calendar, error) {
 	return out, nil
 }
 
-// Calendar builds one feed: its header and its entries over its window.
-func (c *Catalogue) Calendar(f *config.Feed) (*Calendar, error) {
+// Calendar builds one feed: its header and its entries over its window. It
+// stops with ctx's error when ctx is done.
+func (c *Catalogue) Calendar(ctx context.Context, f *config.Feed) (*Calendar, error) {
 	s, ok := c.sites[f.Site]
 	if !ok {
 		return nil, fmt.Errorf("feed %q: site %q: no site has this id", f.ID, f.Site)
 	}
 	first, last := c.window(f, s)
-	return c.sky.Calendar(s, f, first, last, c.opts)
+	return c.sky.Calendar(ctx, s, f, first, last, c.opts)
 }
 
 // Calendar builds one feed for a site over the local dates first..last,
-// which must lie within the dates the Sky was made for.
-func (sky *Sky) Calendar(s *config.Site, f *config.Feed, first, last time.Time, opts Options) (*Calendar, error) {
+// which must lie within the dates the Sky was made for. It stops with ctx's
+// error when ctx is done.
+func (sky *Sky) Calendar(ctx context.Context, s *config.Site, f *config.Feed, first, last time.Time, opts Options) (*Calendar, error) {
 	first, last = civil(first), civil(last)
 	loc := s.TimeZone.Location
 	cal := &Calendar{
@@ -121,7 +124,7 @@ func (sky *Sky) Calendar(s *config.Site, f *config.Feed, first, last time.Time, 
 	if opts.FeedURL != nil {
 		cal.URL = opts.FeedURL(f.ID)
 	}
-	entries, err := sky.Entries(s, f.ID, f.Kinds, first, last)
+	entries, err := sky.Entries(ctx, s, f.ID, f.Kinds, first, last)
 	if err != nil {
 		return nil, fmt.Errorf("feed %q: %w", f.ID, err)
 	}
@@ -145,9 +148,10 @@ func PlaceOf(s *config.Site) Place {
 
 // Entries turns the kinds of one feed into calendar entries for the local
 // dates first..last: events with their options applied, notes for dates
-// without an event, and daily summaries. Entries are sorted by Start, then UID.
-func (sky *Sky) Entries(s *config.Site, feedID string, specs []config.KindSpec, first, last time.Time) ([]Entry, error) {
-	col := &collector{sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
+// without an event, and daily summaries. Entries are sorted by Start, then
+// UID. It stops with ctx's error when ctx is done.
+func (sky *Sky) Entries(ctx context.Context, s *config.Site, feedID string, specs []config.KindSpec, first, last time.Time) ([]Entry, error) {
+	col := &collector{ctx: ctx, sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
 	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: map[string]int{}, noted: map[string]bool{}}
 	days := int(col.last.Sub(col.first).Hours()/24) + 1
 	w.out = make([]Entry, 0, days*(len(specs)+1))
@@ -203,7 +207,7 @@ func sortEntries(es []Entry) []Entry {
 // summaries adds one all-day entry per date: sunrise, sunset, day length and
 // civil twilight.
 func summaries(col *collector, w *entryWriter, spec config.KindSpec) error {
-	sub := &collector{sky: col.sky, p: col.p, first: col.first, last: col.last, thresholds: col.thresholds, lengths: col.lengths}
+	sub := &collector{ctx: col.ctx, sky: col.sky, p: col.p, first: col.first, last: col.last, thresholds: col.thresholds, lengths: col.lengths}
 	for _, name := range []string{"sunrise", "sunset", "civil-dawn", "civil-dusk"} {
 		if err := sub.add(config.Kind{Name: name}); err != nil {
 			return err

@@ -1,6 +1,7 @@
 package feed
 
 import (
+	"context"
 	"strings"
 	"testing"
 	"time"
@@ -57,7 +58,7 @@ func sky(t *testing.T, first, last string) *Sky {
 func TestEventsGroupedByLocalDate(t *testing.T) {
 	s := site(t, "usno-29n81w", 29, -81, "UTC")
 	sk := sky(t, "2019-05-14", "2019-05-16")
-	events, notes, err := sk.Events(PlaceOf(s), mustKinds(t, "sunrise", "sunset"), date("2019-05-15"), date("2019-05-15"))
+	events, notes, err := sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "sunrise", "sunset"), date("2019-05-15"), date("2019-05-15"))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -101,7 +102,7 @@ func TestPolarStatesBecomeOneNote(t *testing.T) {
 		t.Run(tc.day, func(t *testing.T) {
 			sk := sky(t, tc.day, tc.day)
 			specs := []config.KindSpec{{Kind: mustKinds(t, "sunrise")[0]}, {Kind: mustKinds(t, "sunset")[0]}}
-			entries, err := sk.Entries(s, "polar", specs, date(tc.day), date(tc.day))
+			entries, err := sk.Entries(context.Background(), s, "polar", specs, date(tc.day), date(tc.day))
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -132,7 +133,7 @@ func TestSeasonNamedForHemisphere(t *testing.T) {
 		{site(t, "north", 48.2, 16.4, "Europe/Vienna"), "Spring begins"},
 		{site(t, "south", -41.3, 174.8, "Pacific/Auckland"), "Autumn begins"},
 	} {
-		entries, err := sk.Entries(tc.s, "seasons", specs, date("2027-03-01"), date("2027-04-01"))
+		entries, err := sk.Entries(context.Background(), tc.s, "seasons", specs, date("2027-03-01"), date("2027-04-01"))
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -157,7 +158,7 @@ func TestSeasonNamedForHemisphere(t *testing.T) {
 func TestPhotoperiodTwelveHours(t *testing.T) {
 	s := site(t, "mid", 48.2, 16.4, "Europe/Vienna")
 	sk := sky(t, "2027-01-01", "2027-12-31")
-	events, _, err := sk.Events(PlaceOf(s), mustKinds(t, "photoperiod:12h"), date("2027-01-01"), date("2027-12-31"))
+	events, _, err := sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "photoperiod:12h"), date("2027-01-01"), date("2027-12-31"))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -184,7 +185,7 @@ func TestPhotoperiodTwelveHours(t *testing.T) {
 func TestGoldenAndBlueHour(t *testing.T) {
 	s := site(t, "mid", 48.2, 16.4, "Europe/Vienna")
 	sk := sky(t, "2027-06-01", "2027-06-03")
-	events, _, err := sk.Events(PlaceOf(s), mustKinds(t, "golden-hour", "blue-hour", "sunrise", "sunset"), date("2027-06-01"), date("2027-06-03"))
+	events, _, err := sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "golden-hour", "blue-hour", "sunrise", "sunset"), date("2027-06-01"), date("2027-06-03"))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -229,7 +230,7 @@ func TestUIDsStableAcrossRebuilds(t *testing.T) {
 		out := map[string]string{}
 		for i := range cfg.Feeds {
 			f := &cfg.Feeds[i]
-			cal, err := cat.Calendar(f)
+			cal, err := cat.Calendar(context.Background(), f)
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -264,15 +265,15 @@ func TestKindOptions(t *testing.T) {
 	s := site(t, "mid", 48.2, 16.4, "Europe/Vienna")
 	sk := sky(t, "2027-06-01", "2027-06-01")
 	rise := mustKinds(t, "sunrise")[0]
-	plain, err := sk.Entries(s, "f", []config.KindSpec{{Kind: rise}}, date("2027-06-01"), date("2027-06-01"))
+	plain, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{{Kind: rise}}, date("2027-06-01"), date("2027-06-01"))
 	if err != nil {
 		t.Fatal(err)
 	}
-	shifted, err := sk.Entries(s, "f", []config.KindSpec{{Kind: rise, Offset: config.Duration(-30 * time.Minute)}}, date("2027-06-01"), date("2027-06-01"))
+	shifted, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{{Kind: rise, Offset: config.Duration(-30 * time.Minute)}}, date("2027-06-01"), date("2027-06-01"))
 	if err != nil {
 		t.Fatal(err)
 	}
-	labelled, err := sk.Entries(s, "f", []config.KindSpec{{Kind: rise, Label: "Open the vents", AllDay: true}}, date("2027-06-01"), date("2027-06-01"))
+	labelled, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{{Kind: rise, Label: "Open the vents", AllDay: true}}, date("2027-06-01"), date("2027-06-01"))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -302,7 +303,7 @@ func TestCautions(t *testing.T) {
 	for _, k := range mustKinds(t, "sunrise", "civil-dusk", "golden-hour", "solar-noon") {
 		specs = append(specs, config.KindSpec{Kind: k})
 	}
-	entries, err := sk.Entries(s, "f", specs, date("2027-06-01"), date("2027-06-01"))
+	entries, err := sk.Entries(context.Background(), s, "f", specs, date("2027-06-01"), date("2027-06-01"))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -325,7 +326,7 @@ func TestDailySummary(t *testing.T) {
 	s := site(t, "mid", 48.2, 16.4, "Europe/Vienna")
 	sk := sky(t, "2027-03-25", "2027-04-02")
 	specs := []config.KindSpec{{Kind: mustKinds(t, "daily-summary")[0]}}
-	entries, err := sk.Entries(s, "f", specs, date("2027-03-26"), date("2027-04-01"))
+	entries, err := sk.Entries(context.Background(), s, "f", specs, date("2027-03-26"), date("2027-04-01"))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -357,7 +358,7 @@ func TestNoMoonriseNote(t *testing.T) {
 	s := site(t, "ithaca", 42.45, -76.5, "Etc/GMT+4")
 	sk := sky(t, "2015-03-09", "2015-03-11")
 	specs := []config.KindSpec{{Kind: mustKinds(t, "moonrise")[0]}}
-	entries, err := sk.Entries(s, "moon", specs, date("2015-03-09"), date("2015-03-11"))
+	entries, err := sk.Entries(context.Background(), s, "moon", specs, date("2015-03-09"), date("2015-03-11"))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -383,7 +384,7 @@ func TestNoMoonriseNote(t *testing.T) {
 func TestFullMoonEntry(t *testing.T) {
 	sk := sky(t, "2020-01-01", "2020-01-31")
 	s := site(t, "south", -41.3, 174.8, "Pacific/Auckland") // UTC+13 in January: 11 January locally
-	events, _, err := sk.Events(PlaceOf(s), mustKinds(t, "moon-phases"), date("2020-01-01"), date("2020-01-31"))
+	events, _, err := sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "moon-phases"), date("2020-01-01"), date("2020-01-31"))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -419,7 +420,7 @@ func TestFullMoonEntry(t *testing.T) {
 func TestDarkWindowsInsideAstronomicalNight(t *testing.T) {
 	s := site(t, "obs", 39.08, -105.42, "America/Denver")
 	sk := sky(t, "2027-01-01", "2027-02-28")
-	events, notes, err := sk.Events(PlaceOf(s), mustKinds(t, "dark-window", "astronomical-dusk", "astronomical-dawn"), date("2027-01-01"), date("2027-02-27"))
+	events, notes, err := sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "dark-window", "astronomical-dusk", "astronomical-dawn"), date("2027-01-01"), date("2027-02-27"))
 	if err != nil {
 		t.Fatal(err)
 	}

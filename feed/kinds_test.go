@@ -1,6 +1,7 @@
 package feed
 
 import (
+	"context"
 	"os/exec"
 	"strings"
 	"testing"
@@ -16,7 +17,7 @@ func TestEveryKindComputed(t *testing.T) {
 	for _, example := range config.KindExamples {
 		t.Run(example, func(t *testing.T) {
 			k := mustKinds(t, example)
-			entries, err := sk.Entries(s, "f", []config.KindSpec{{Kind: k[0]}}, date("2027-01-01"), date("2027-12-31"))
+			entries, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{{Kind: k[0]}}, date("2027-01-01"), date("2027-12-31"))
 			if err != nil {
 				t.Fatal(err)
 			}

@@ -95,7 +95,7 @@ func (c *collector) moonRiseSet(k config.Kind) error {
 	if err != nil {
 		return err
 	}
-	days, err := me.MoonDays(c.p.Observer, c.p.Location, midnight(c.first, c.p.Location), midnight(c.last, c.p.Location))
+	days, err := me.MoonDays(c.ctx, c.p.Observer, c.p.Location, midnight(c.first, c.p.Location), midnight(c.last, c.p.Location))
 	if err != nil {
 		return err
 	}
@@ -153,7 +153,7 @@ func (c *collector) darkWindows(k config.Kind) error {
 	if err != nil {
 		return err
 	}
-	nights, err := me.DarkWindows(c.p.Observer, c.p.Location, midnight(c.first, c.p.Location), midnight(c.last, c.p.Location), c.maxLit)
+	nights, err := me.DarkWindows(c.ctx, c.p.Observer, c.p.Location, midnight(c.first, c.p.Location), midnight(c.last, c.p.Location), c.maxLit)
 	if err != nil {
 		return err
 	}

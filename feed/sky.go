@@ -1,6 +1,7 @@
 package feed
 
 import (
+	"context"
 	"fmt"
 	"slices"
 	"sort"
@@ -88,32 +89,34 @@ func localDate(t time.Time, loc *time.Location) time.Time {
 	return civil(t.In(loc))
 }
 
-// midnight is the start of the civil date d in loc.
+// midnight is the first instant of the civil date d in loc: its local
+// midnight, or the clock change where the clocks jump over midnight.
 func midnight(d time.Time, loc *time.Location) time.Time {
-	return time.Date(d.Year(), d.Month(), d.Day(), 0, 0, 0, 0, loc)
+	return astro.DateStart(loc, d.Year(), d.Month(), d.Day())
 }
 
 // Events computes every event of kinds on local dates first..last (inclusive,
 // 00:00 UTC civil dates) and the notes for dates on which a kind has no
-// event. Events are sorted by Start.
-func (s *Sky) Events(p Place, kinds []config.Kind, first, last time.Time) ([]Event, []Note, error) {
+// event. Events are sorted by Start. It stops with ctx's error when ctx is
+// done.
+func (s *Sky) Events(ctx context.Context, p Place, kinds []config.Kind, first, last time.Time) ([]Event, []Note, error) {
 	specs := make([]config.KindSpec, len(kinds))
 	for i, k := range kinds {
 		specs[i] = config.KindSpec{Kind: k}
 	}
-	return s.EventsFor(p, specs, first, last)
+	return s.EventsFor(ctx, p, specs, first, last)
 }
 
 // EventsFor is Events with the options of each kind that change what is
 // computed (a dark window's largest illuminated fraction); the options that
 // only change how entries look (offset, label) are for the catalogue.
-func (s *Sky) EventsFor(p Place, specs []config.KindSpec, first, last time.Time) ([]Event, []Note, error) {
+func (s *Sky) EventsFor(ctx context.Context, p Place, specs []config.KindSpec, first, last time.Time) ([]Event, []Note, error) {
 	first, last = civil(first), civil(last)
 	if last.Before(first) {
 		return nil, nil, fmt.Errorf("feed: date range ends (%s) before it starts (%s)",
 			last.Format(time.DateOnly), first.Format(time.DateOnly))
 	}
-	c := &collector{sky: s, p: p, first: first, last: last}
+	c := &collector{ctx: ctx, sky: s, p: p, first: first, last: last}
 	if err := c.prepare(altitudes(p.Observer, specs)...); err != nil {
 		return nil, nil, fmt.Errorf("feed: %w", err)
 	}
@@ -129,6 +132,7 @@ func (s *Sky) EventsFor(p Place, specs []config.KindSpec, first, last time.Time)
 }
 
 type collector struct {
+	ctx         context.Context // checked between kinds and in the per-date loops
 	sky         *Sky
 	p           Place
 	first, last time.Time
@@ -150,6 +154,9 @@ func (c *collector) span(pad int) (time.Time, time.Time) {
 }
 
 func (c *collector) add(k config.Kind) error {
+	if err := c.ctx.Err(); err != nil {
+		return err
+	}
 	switch k.Name {
 	case "sunrise":
 		return c.crossings(k, c.p.Observer.RiseSetAltitude(), astro.Rising, "sun-horizon")
@@ -378,7 +385,7 @@ type Profile struct {
 // Profiles returns the daylight and twilight durations of each local date
 // first..last.
 func (s *Sky) Profiles(p Place, first, last time.Time) ([]Profile, error) {
-	c := &collector{sky: s, p: p, first: civil(first), last: civil(last)}
+	c := &collector{ctx: context.Background(), sky: s, p: p, first: civil(first), last: civil(last)}
 	var cols [4][]time.Duration
 	for i, alt := range []float64{p.Observer.RiseSetAltitude(), astro.CivilTwilight, astro.NauticalTwilight, astro.AstronomicalTwilight} {
 		l, err := c.above(alt)

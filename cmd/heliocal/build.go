@@ -67,7 +67,7 @@ func build(cfg *config.Config, now time.Time, l layout) ([]publish.Source, publi
 	srcs := make([]publish.Source, len(cfg.Feeds))
 	for i := range cfg.Feeds {
 		f := &cfg.Feeds[i]
-		srcs[i] = publish.Source{ID: f.ID, Build: func(context.Context) (*feed.Calendar, error) { return cat.Calendar(f) }}
+		srcs[i] = publish.Source{ID: f.ID, Build: func(ctx context.Context) (*feed.Calendar, error) { return cat.Calendar(ctx, f) }}
 	}
 	opts := publish.RenderOptions{
 		Version:      versionString(),
@@ -138,7 +138,7 @@ func chartsFor(cfg *config.Config, now time.Time) func(context.Context, feed.Sit
 			}
 		}
 		if len(marks) > 0 {
-			events, _, err := sky.Events(place, marks, first, last)
+			events, _, err := sky.Events(context.Background(), place, marks, first, last)
 			if err != nil {
 				return nil, err
 			}
@@ -203,7 +203,7 @@ func (c *skyCache) get(first, last time.Time) (*feed.Sky, error) {
 // adhocFeed renders the ad-hoc feed of a validated query.
 func adhocFeed(l layout, refresh time.Duration) serve.AdhocFunc {
 	skies := &skyCache{}
-	return func(_ context.Context, q serve.AdhocQuery) ([]byte, error) {
+	return func(ctx context.Context, q serve.AdhocQuery) ([]byte, error) {
 		first := q.Start
 		last := first.AddDate(0, 0, q.Days-1)
 		site := &config.Site{
@@ -230,7 +230,7 @@ func adhocFeed(l layout, refresh time.Duration) serve.AdhocFunc {
 			}
 			return nil, err
 		}
-		cal, err := sky.Calendar(site, f, first, last, feed.Options{PageURL: l.base, Refresh: refresh})
+		cal, err := sky.Calendar(ctx, site, f, first, last, feed.Options{PageURL: l.base, Refresh: refresh})
 		if err != nil {
 			return nil, err
 		}

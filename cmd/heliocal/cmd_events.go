@@ -164,7 +164,7 @@ func parseKinds(list string) ([]config.Kind, error) {
 	return kinds, nil
 }
 
-func runEvents(_ context.Context, g *globals, o *eventsOptions) error {
+func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 	site, err := eventsPlace(g, o)
 	if err != nil {
 		return err
@@ -214,7 +214,7 @@ func runEvents(_ context.Context, g *globals, o *eventsOptions) error {
 	for i, k := range kinds {
 		specs[i] = config.KindSpec{Kind: k, MaxIllumination: o.maxLit}
 	}
-	events, notes, err := sky.EventsFor(feed.PlaceOf(site), specs, from, to)
+	events, notes, err := sky.EventsFor(ctx, feed.PlaceOf(site), specs, from, to)
 	if err != nil {
 		return err
 	}

@@ -1,6 +1,7 @@
 package publish
 
 import (
+	"context"
 	"time"
 
 	"heliocal/astro"
@@ -17,7 +18,7 @@ func astroChart(eph *astro.Ephemeris, s feed.Site, year int) (*SiteChart, error)
 	limits := []float64{o.RiseSetAltitude(), -6, -12, -18}
 	var per [4][]astro.Day
 	for i, alt := range limits {
-		days, err := eph.SunDays(o, alt, s.Location, first, last)
+		days, err := eph.SunDays(context.Background(), o, alt, s.Location, first, last)
 		if err != nil {
 			return nil, err
 		}

@@ -52,9 +52,9 @@ func demoRun(t testing.TB, now time.Time, keep map[string]bool, back, ahead int)
 	srcs := make([]Source, len(cfg.Feeds))
 	for i := range cfg.Feeds {
 		f := &cfg.Feeds[i]
-		srcs[i] = Source{ID: f.ID, Build: func(context.Context) (*feed.Calendar, error) { return cat.Calendar(f) }}
+		srcs[i] = Source{ID: f.ID, Build: func(ctx context.Context) (*feed.Calendar, error) { return cat.Calendar(ctx, f) }}
 		if keep != nil { // small runs: keep the calendars to compare with
-			c, err := cat.Calendar(f)
+			c, err := cat.Calendar(context.Background(), f)
 			if err != nil {
 				t.Fatal(err)
 			}

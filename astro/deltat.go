@@ -24,12 +24,18 @@ import (
 //     Earth orientation data) interpolated linearly within 1973-02..2023-05;
 //     the Espenak–Meeus polynomials (NASA eclipse web site, 2006; Meeus ch. 10
 //     for the method) before, with their 0.08 s offset from the first observed
-//     value faded in smoothly over 1968–1973; after the table, ΔT stays at the
-//     last observed value (69.18 s: the Earth has not slowed since 2016) and
-//     joins the Espenak–Meeus long-term expression smoothly by 2050, with
-//     weight x⁵(6−5x), x = (year − 2023.33)/26.67 (0.06 at 2035, so ΔT ≈ 70.1 s
-//     then; the 2005–2050 polynomial alone would give 75.7 s in 2027, already
-//     6 s more than observed).
+//     value faded in smoothly over 1968–1973; after the table, the
+//     prediction of the long-term trend of Stephenson, Morrison & Hohenkerk
+//     (2016, Proc. R. Soc. A 472: 20160404): ΔT grows as 32.5 s·u² (u in
+//     centuries), the Earth's day lengthening by 1.78 ms per century, from
+//     the last observed value (69.18 s in 2023-05) with the observed rate
+//     then, which is zero to a tenth of a second per year (the Earth has not
+//     slowed since 2016):
+//     ΔT = 69.18 s + 32.5 s·((year − 2023.33)/100)²
+//     (69.6 s in 2035, 88.5 s in 2100, 171 s in 2200). A prediction:
+//     FutureUncertainty gives its uncertainty, 9 s per decade after the
+//     table. (The Espenak–Meeus expressions used before would give 75.7 s in
+//     2027 and 203 s in 2100.)
 //
 // The supported span is MinTime..MaxTime (1800-01-01 to 2200-12-31
 // inclusive). Exported functions return a *RangeError outside it.
@@ -112,7 +118,16 @@ var (
 
 const (
 	deltaTBlendFrom = 1968.0 // the polynomial is shifted onto the table from here
-	deltaTBlendTo   = 2050.0 // the extrapolation reaches the long-term polynomial here
+	// deltaTFutureQuadratic is the long-term growth of ΔT in seconds per
+	// century squared (Stephenson, Morrison & Hohenkerk 2016: the parabola
+	// ΔT = −320 s + 32.5 s·((year − 1825)/100)²).
+	deltaTFutureQuadratic = 32.5
+	// deltaTFutureDrift is the uncertainty of the prediction in seconds per
+	// year after the table: since 1900 the 20-year mean rate of ΔT has
+	// ranged from 0.17 s/yr (1920–1941) to 1.2 s/yr (1900–1920) while it is
+	// about 0 now; a forecast that misses the rate by that much drifts by
+	// 9 s per decade (about a minute by 2090).
+	deltaTFutureDrift = 0.9
 )
 
 // decimalYear converts Unix seconds to a decimal year (2000.0 = 2000-01-01 0h).
@@ -138,13 +153,8 @@ func deltaTSeconds(sec float64) float64 {
 		}
 		return v
 	case sec >= deltaTTableEnd:
-		y := decimalYear(sec)
-		if y >= deltaTBlendTo {
-			return espenakMeeus(y)
-		}
-		x := (y - yearTableEnd) / (deltaTBlendTo - yearTableEnd)
-		w := x * x * x * x * x * (6 - 5*x)
-		return (1-w)*deltaTLast + w*espenakMeeus(y)
+		u := (decimalYear(sec) - yearTableEnd) / 100
+		return deltaTLast + deltaTFutureQuadratic*u*u
 	}
 	i := sort.SearchFloat64s(deltaTMonthStart, sec)
 	if i > 0 && (i == len(deltaTMonthStart) || deltaTMonthStart[i] > sec) {
@@ -156,6 +166,19 @@ func deltaTSeconds(sec float64) float64 {
 	a, b := deltaTMonthStart[i], deltaTMonthStart[i+1]
 	f := (sec - a) / (b - a)
 	return deltaTMonthly[i] + f*(deltaTMonthly[i+1]-deltaTMonthly[i])
+}
+
+// FutureUncertainty returns the uncertainty of ΔT, and so of every instant
+// computed for t, from the prediction of future ΔT: zero while ΔT is
+// observed (to 2023-05), then 0.9 s for each year after (9 s per decade:
+// ±52 s in 2080, ±60 s in 2090, ±160 s in 2200). Outside MinTime..MaxTime
+// it returns zero.
+func FutureUncertainty(t time.Time) time.Duration {
+	sec := unixSeconds(t)
+	if sec <= deltaTTableEnd || checkTime("time", t) != nil {
+		return 0
+	}
+	return secondsToDuration(deltaTFutureDrift * (decimalYear(sec) - yearTableEnd))
 }
 
 // dut1Seconds returns UT1 − UTC in seconds for the UTC instant sec.
@@ -175,8 +198,9 @@ func dut1Seconds(sec float64, deltaT float64) float64 {
 
 // espenakMeeus evaluates the Espenak–Meeus ΔT polynomials (NASA eclipse web
 // site, "Polynomial expressions for Delta T", 2006) for decimal year y, in
-// seconds. Below 1800 the 1800–1860 expression is extended (used only for
-// the few days of margin an ephemeris may need).
+// seconds, up to the observed table (1973). Below 1800 the 1800–1860
+// expression is extended (used only for the few days of margin an ephemeris
+// may need).
 func espenakMeeus(y float64) float64 {
 	switch {
 	case y < 1860:
@@ -194,21 +218,9 @@ func espenakMeeus(y float64) float64 {
 	case y < 1961:
 		t := y - 1950
 		return 29.07 + t*(0.407+t*(-1.0/233+t/2547))
-	case y < 1986:
-		t := y - 1975
-		return 45.45 + t*(1.067+t*(-1.0/260-t/718))
-	case y < 2005:
-		t := y - 2000
-		return 63.86 + t*(0.3345+t*(-0.060374+t*(0.0017275+t*(0.000651814+t*0.00002373599))))
-	case y < 2050:
-		t := y - 2000
-		return 62.92 + t*(0.32217+t*0.005589)
-	case y < 2150:
-		u := (y - 1820) / 100
-		return -20 + 32*u*u - 0.5628*(2150-y)
 	}
-	u := (y - 1820) / 100
-	return -20 + 32*u*u
+	t := y - 1975 // the 1961–1986 expression: only used up to 1973
+	return 45.45 + t*(1.067+t*(-1.0/260-t/718))
 }
 
 // Epoch is one instant on the time scales the theories use.

@@ -148,9 +148,10 @@ func crossCheckPhases(t *testing.T, cr crossRef) {
 // difference between the two ΔT models at the event: the Moon moves about
 // 0.5″ per second against the stars, so a ΔT difference δ moves a rise, set
 // or transit by about δ/27 to δ/14 (measured 0.04–0.07·δ). The ΔT models
-// agree where ΔT is observed (to 2023) and part after: ours follows the
-// Espenak–Meeus long-term expression from 2050, the Swiss Ephemeris a
-// flatter extrapolation (60–70 s less by 2075).
+// agree where ΔT is observed (to 2023) and part after: ours and the Swiss
+// Ephemeris's predictions stay within 6 s of each other to 2100, while
+// astronomy-engine follows the Espenak–Meeus expressions (tens of seconds
+// more from the 2030s).
 func TestMoonCrossCheckRiseSet(t *testing.T) {
 	for _, ref := range crossRefs {
 		t.Run(ref.file, func(t *testing.T) { crossCheckRiseSet(t, ref) })
@@ -240,7 +241,7 @@ func crossCheckRiseSet(t *testing.T, cr crossRef) {
 			}
 		}
 	}
-	if len(diffs) < 700 || len(diffsDT) < 300 {
+	if len(diffs) < 500 || len(diffs)+len(diffsDT) < 1200 {
 		t.Fatalf("only %d + %d rise/set events compared", len(diffs), len(diffsDT))
 	}
 	t.Logf("moonrise/moonset vs %s, |lat| ≤ 60°, same ΔT (±1 s): n=%d, |Δ| median %.2f s, p95 %.2f s, max %.2f s; ΔT models differing: n=%d, p95 %.2f s, max %.2f s; |lat| > 60° (incl. transits): n=%d max %.2f s",

@@ -151,6 +151,31 @@ func TestSeasonNamedForHemisphere(t *testing.T) {
 	}
 }
 
+// A far-future equinox says how uncertain it is (the Earth's rotation is
+// forecast: 9 s per decade after 2023, about a minute by 2090); a near one
+// says nothing.
+func TestFarFutureSeasonUncertain(t *testing.T) {
+	s := site(t, "north", 48.2, 16.4, "Europe/Vienna")
+	specs := []config.KindSpec{{Kind: mustKinds(t, "march-equinox")[0]}}
+	for _, tc := range []struct {
+		year string
+		want string
+	}{
+		{"2030", ""},
+		{"2090", "Uncertain by about ±1 min"},
+	} {
+		sk := sky(t, tc.year+"-03-01", tc.year+"-04-01")
+		entries, err := sk.Entries(s, "seasons", specs, date(tc.year+"-03-01"), date(tc.year+"-04-01"))
+		if err != nil || len(entries) != 1 {
+			t.Fatalf("%s: %d entries, %v", tc.year, len(entries), err)
+		}
+		got := entries[0].Description
+		if tc.want == "" && strings.Contains(got, "Uncertain") || tc.want != "" && !strings.Contains(got, tc.want) {
+			t.Errorf("%s: description %q, want %q", tc.year, got, tc.want)
+		}
+	}
+}
+
 // Day length passes 12 h a few days before the March equinox at mid-northern
 // latitudes, because sunrise and sunset are taken at the upper limb with
 // refraction (the "equilux"; common practice, dates from memory: 16–18 March

@@ -201,6 +201,7 @@ func describeMoon(s *siteInfo, e Event) (string, string) {
 			"last-quarter":  "the Moon is 90° west of the Sun, half lit, and rises around midnight",
 		}[e.Kind.Name]
 		fmt.Fprintf(&b, "%s at %s (%s UTC): %s.", title, at, e.Start.UTC().Round(time.Second).Format("2006-01-02 15:04:05"), meaning)
+		b.WriteString(FutureNote(e.Start))
 	case "moonrise", "moonset":
 		title = fmt.Sprintf("%s (%s, %s lit)", title, waxing(e), percent(e.Illuminated))
 		fmt.Fprintf(&b, "%s at %s, %s: the Moon is %s, %s lit.\nUpper limb of the Moon on the horizon with standard refraction, seen from the site.",

@@ -226,10 +226,12 @@ func describe(s *siteInfo, e Event) (string, string) {
 		season := seasonStarted(e.Kind.Name, s.Latitude)
 		fmt.Fprintf(&b, "%s at %s (%s UTC).\nStart of astronomical %s in the %s hemisphere; it lasts %s, until the next equinox or solstice.",
 			title, at, e.Start.UTC().Round(time.Second).Format("2006-01-02 15:04:05"), season, hemisphere(s.Latitude), days(e.SeasonLength))
+		b.WriteString(FutureNote(e.Start))
 		title = fmt.Sprintf("%s: %s begins", title, capital(season))
 	case "cross-quarter":
 		fmt.Fprintf(&b, "Cross-quarter day at %s (%s UTC): the Sun reaches ecliptic longitude %s°, midway between %s.\n"+
 			"Farm calendars mark these quarter points of the seasons.", at, e.Start.UTC().Round(time.Second).Format("2006-01-02 15:04:05"), e.Part, crossQuarterBetween[e.Part])
+		b.WriteString(FutureNote(e.Start))
 	case "perihelion", "aphelion":
 		near := "closest to"
 		if e.Kind.Name == "aphelion" {
@@ -238,6 +240,7 @@ func describe(s *siteInfo, e Event) (string, string) {
 		title = fmt.Sprintf("%s: Earth %s the Sun", title, near)
 		fmt.Fprintf(&b, "Earth is %s the Sun at %s (%s UTC): %.6f au (%s km).", near, at,
 			e.Start.UTC().Format("2006-01-02 15:04"), e.Distance, thousands(e.Distance*149597870.7))
+		b.WriteString(FutureNote(e.Start))
 	case "photoperiod":
 		if e.Direction == astro.Rising {
 			title = fmt.Sprintf("Day length reaches %s", amount(e.Kind.DayLength))
@@ -251,6 +254,41 @@ func describe(s *siteInfo, e Event) (string, string) {
 		return describeMoon(s, e)
 	}
 	return title, b.String()
+}
+
+// Uncertain returns how uncertain the instant t is because the Earth's
+// rotation after the last observation (2023) is a forecast (astro's future
+// ΔT: 9 s per decade), rounded to the second, when that reaches half a
+// minute (from about 2057); otherwise zero.
+func Uncertain(t time.Time) time.Duration {
+	u := astro.FutureUncertainty(t).Round(time.Second)
+	if u < 30*time.Second {
+		return 0
+	}
+	return u
+}
+
+// FutureNote is the sentence that tells a reader how uncertain a
+// far-future instant is ("" when Uncertain is zero).
+func FutureNote(t time.Time) string {
+	u := Uncertain(t)
+	if u == 0 {
+		return ""
+	}
+	return fmt.Sprintf("\nUncertain by about ±%s: the Earth's rotation this far ahead is a forecast.", roughly(u))
+}
+
+// roughly writes an uncertainty as "40 s" or "1 min 20 s" rounded to 10 s.
+func roughly(d time.Duration) string {
+	d = d.Round(10 * time.Second)
+	m, sec := int(d/time.Minute), int(d%time.Minute/time.Second)
+	switch {
+	case m == 0:
+		return fmt.Sprintf("%d s", sec)
+	case sec == 0:
+		return fmt.Sprintf("%d min", m)
+	}
+	return fmt.Sprintf("%d min %d s", m, sec)
 }
 
 var crossQuarterBetween = map[string]string{

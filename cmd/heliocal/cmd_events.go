@@ -242,6 +242,8 @@ type jsonEvent struct {
 	Distance  *float64 `json:"distance_au,omitempty"`
 	DayLength *float64 `json:"day_length_s,omitempty"`
 	Lit       *float64 `json:"illuminated,omitempty"`
+	// Uncertainty is set on far-future seasons, apsides and phases.
+	Uncertainty *float64 `json:"uncertainty_s,omitempty"`
 }
 
 type jsonNote struct {
@@ -279,6 +281,16 @@ func toJSONEvent(e feed.Event) jsonEvent {
 	case "perihelion", "aphelion":
 		r := e.Distance
 		j.Distance = &r
+	}
+	switch e.Kind.Name {
+	case "march-equinox", "june-solstice", "september-equinox", "december-solstice", "cross-quarter",
+		"perihelion", "aphelion", "new-moon", "first-quarter", "full-moon", "last-quarter":
+		if u := feed.Uncertain(e.Start); u > 0 {
+			s := u.Seconds()
+			j.Uncertainty = &s
+		}
+	}
+	switch e.Kind.Name {
 	case "photoperiod", "sunrise", "sunset":
 		s := math.Round(e.DayLength.Seconds()*1000) / 1000
 		j.DayLength = &s

@@ -165,7 +165,7 @@ func TestFarFutureSeasonUncertain(t *testing.T) {
 		{"2090", "Uncertain by about ±1 min"},
 	} {
 		sk := sky(t, tc.year+"-03-01", tc.year+"-04-01")
-		entries, err := sk.Entries(s, "seasons", specs, date(tc.year+"-03-01"), date(tc.year+"-04-01"))
+		entries, err := sk.Entries(context.Background(), s, "seasons", specs, date(tc.year+"-03-01"), date(tc.year+"-04-01"))
 		if err != nil || len(entries) != 1 {
 			t.Fatalf("%s: %d entries, %v", tc.year, len(entries), err)
 		}

@@ -1,6 +1,7 @@
 package config
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"net"
@@ -223,31 +224,16 @@ func siteList(ids []string) string {
 
 func (s *Service) validate(ps *problems) {
 	if s.Listen != "" {
-		host, port, err := net.SplitHostPort(s.Listen)
-		n, perr := strconv.Atoi(port)
-		switch {
-		case err != nil:
-			ps.add("service.listen", s.Listen, "must be host:port", `e.g. ":8080" or "127.0.0.1:8080"`)
-		case perr != nil || n < 0 || n > 65535:
-			ps.add("service.listen", s.Listen, "port must be a number within 0..65535", `e.g. ":8080"`)
-		case strings.ContainsAny(host, " /"):
-			ps.add("service.listen", s.Listen, "host must be a name or an IP address", `e.g. "127.0.0.1:8080", or ":8080" for every address`)
+		if msg, hint := listenProblem(s.Listen); msg != "" {
+			ps.add("service.listen", s.Listen, msg, hint)
 		}
 	}
 	if strings.ContainsRune(s.OutDir, 0) {
 		ps.add("service.out_dir", s.OutDir, "contains a NUL byte", "")
 	}
 	if s.BaseURL != "" {
-		u, err := url.Parse(s.BaseURL)
-		switch {
-		case err != nil:
-			ps.add("service.base_url", s.BaseURL, "malformed URL", `e.g. "https://sky.example.org/calendars/"`)
-		case u.Scheme != "http" && u.Scheme != "https":
-			ps.add("service.base_url", s.BaseURL, "must be an absolute http or https URL", `e.g. "https://sky.example.org/calendars/"`)
-		case u.Host == "":
-			ps.add("service.base_url", s.BaseURL, "has no host name", `e.g. "https://sky.example.org/calendars/"`)
-		case u.RawQuery != "" || u.Fragment != "":
-			ps.add("service.base_url", s.BaseURL, "must not have a query or fragment: feed file names are appended to it", "")
+		if msg, hint := baseURLProblem(s.BaseURL); msg != "" {
+			ps.add("service.base_url", redactURL(s.BaseURL), msg, hint)
 		}
 	}
 	if s.Refresh != "" {
@@ -258,6 +244,86 @@ func (s *Service) validate(ps *problems) {
 	if s.MaxFeedBytes < 0 {
 		ps.add("service.max_feed_bytes", strconv.Itoa(s.MaxFeedBytes), "must not be negative", "leave it out for 1000000")
 	}
+}
+
+// CheckListen tells what is wrong with a listen address such as ":8080"
+// (service.listen, serve --listen); nil when it is usable. The error names
+// no field: the caller does.
+func CheckListen(addr string) error {
+	if msg, hint := listenProblem(addr); msg != "" {
+		return settingError(addr, msg, hint)
+	}
+	return nil
+}
+
+// CheckBaseURL tells what is wrong with a public base URL (service.base_url,
+// --base-url); nil when it is usable. A URL with a user name or password is
+// refused: it would be published in every feed, feeds.json and index.html.
+// The error shows the URL with any credentials masked.
+func CheckBaseURL(raw string) error {
+	if msg, hint := baseURLProblem(raw); msg != "" {
+		return settingError(redactURL(raw), msg, hint)
+	}
+	return nil
+}
+
+func settingError(value, msg, hint string) error {
+	e := FieldError{Value: value, Msg: msg, Hint: hint}.Error()
+	return errors.New(strings.TrimPrefix(e, ": "))
+}
+
+func listenProblem(addr string) (msg, hint string) {
+	host, port, err := net.SplitHostPort(addr)
+	n, perr := strconv.Atoi(port)
+	switch {
+	case err != nil:
+		return "must be host:port", `e.g. ":8080" or "127.0.0.1:8080"`
+	case perr != nil || n < 0 || n > 65535:
+		return "port must be a number within 0..65535", `e.g. ":8080"`
+	case strings.ContainsAny(host, " /"):
+		return "host must be a name or an IP address", `e.g. "127.0.0.1:8080", or ":8080" for every address`
+	}
+	return "", ""
+}
+
+func baseURLProblem(raw string) (msg, hint string) {
+	const example = `e.g. "https://sky.example.org/calendars/"`
+	u, err := url.Parse(raw)
+	switch {
+	case err != nil:
+		return "malformed URL", example
+	case u.User != nil:
+		return "must not contain a user name or password: the URL is published in every feed, feeds.json and index.html",
+			"protect the directory with the web server's own access control instead"
+	case u.Scheme != "http" && u.Scheme != "https":
+		return "must be an absolute http or https URL", example
+	case u.Host == "":
+		return "has no host name", example
+	case u.RawQuery != "" || u.Fragment != "" || u.ForceQuery:
+		return "must not have a query or fragment: feed file names are appended to it", ""
+	}
+	return "", ""
+}
+
+// redactURL masks the user name and password of a URL, so an error message
+// or a log line never repeats them.
+func redactURL(raw string) string {
+	u, err := url.Parse(raw)
+	if err != nil || u.User == nil {
+		if at := strings.LastIndex(raw, "@"); err != nil && at >= 0 {
+			if scheme := strings.Index(raw, "://"); scheme >= 0 && scheme < at {
+				return raw[:scheme+3] + "***" + raw[at:]
+			}
+		}
+		return raw
+	}
+	u.User = nil
+	s := u.String()
+	i := strings.Index(s, "://")
+	if i < 0 {
+		return s
+	}
+	return s[:i+3] + "***@" + s[i+3:]
 }
 
 // checkCron validates a standard 5-field cron expression (or a descriptor

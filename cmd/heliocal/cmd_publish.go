@@ -49,6 +49,9 @@ Without --config, ./heliocal.yaml is used if present, else the built-in demo.` +
 }
 
 func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Time) error {
+	if err := checkBaseURLFlag(o.baseURL); err != nil {
+		return err
+	}
 	cfg, src, err := loadConfig(g)
 	if err != nil {
 		return err

@@ -70,6 +70,14 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 		return badInput("--log-format: %q: use text or json", o.logFormat)
 	}
 	log := slog.New(handler)
+	if err := checkBaseURLFlag(o.baseURL); err != nil {
+		return err
+	}
+	if o.listen != "" {
+		if err := config.CheckListen(o.listen); err != nil {
+			return badInput("--listen: %w", err)
+		}
+	}
 	cfg, src, err := loadConfig(g)
 	if err != nil {
 		return err

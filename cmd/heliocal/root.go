@@ -5,6 +5,8 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"slices"
+	"strings"
 
 	"github.com/spf13/cobra"
 
@@ -27,6 +29,18 @@ func (e inputError) Unwrap() error { return e.err }
 
 func badInput(format string, args ...any) error {
 	return inputError{fmt.Errorf(format, args...)}
+}
+
+// checkBaseURLFlag refuses a --base-url the configuration would refuse as
+// service.base_url (not http(s), a query, credentials); "" is no flag.
+func checkBaseURLFlag(v string) error {
+	if v == "" {
+		return nil
+	}
+	if err := config.CheckBaseURL(v); err != nil {
+		return badInput("--base-url: %w", err)
+	}
+	return nil
 }
 
 // globals are the settings every command shares.
@@ -54,6 +68,9 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer, getenv fu
 	err := root.ExecuteContext(ctx)
 	if err == nil {
 		return exitOK
+	}
+	if strings.HasPrefix(err.Error(), "unknown command ") {
+		err = inputError{err} // cobra's own error for an unknown command or a stray argument
 	}
 	fmt.Fprintln(stderr, "heliocal:", err)
 	return exitCode(err)
@@ -85,12 +102,68 @@ Configuration: --config FILE, else ./heliocal.yaml, else the built-in demo.` + e
 	}
 	root.PersistentFlags().StringVarP(&g.configPath, "config", "c", "", "configuration file (YAML, TOML or JSON)")
 	root.SetFlagErrorFunc(func(_ *cobra.Command, err error) error { return inputError{err} })
+	root.CompletionOptions.DisableDefaultCmd = true
 	root.AddCommand(
+		newCompletionCommand(g),
 		newEventsCommand(g),
 		newCheckCommand(g),
 		newPublishCommand(g),
 		newServeCommand(g),
 		newVersionCommand(g),
 	)
+	// Wrong positional arguments are bad input (exit 2), whatever the command.
+	var wrap func(*cobra.Command)
+	wrap = func(c *cobra.Command) {
+		if args := c.Args; args != nil {
+			c.Args = func(cmd *cobra.Command, a []string) error {
+				if err := args(cmd, a); err != nil {
+					return inputError{err}
+				}
+				return nil
+			}
+		}
+		for _, sub := range c.Commands() {
+			wrap(sub)
+		}
+	}
+	wrap(root)
 	return root
+}
+
+var completionShells = []string{"bash", "zsh", "fish", "powershell"}
+
+// newCompletionCommand prints a shell completion script; an unknown or
+// missing shell is bad input (exit 2).
+func newCompletionCommand(g *globals) *cobra.Command {
+	return &cobra.Command{
+		Use:   "completion bash|zsh|fish|powershell",
+		Short: "Print a shell completion script",
+		Long: `Print the completion script for a shell, e.g.
+  heliocal completion bash > /etc/bash_completion.d/heliocal
+  heliocal completion zsh > "${fpath[1]}/_heliocal"
+  heliocal completion fish > ~/.config/fish/completions/heliocal.fish
+  heliocal completion powershell | Out-String | Invoke-Expression` + exitStatusHelp,
+		ValidArgs: completionShells,
+		Args: func(_ *cobra.Command, args []string) error {
+			switch {
+			case len(args) != 1:
+				return fmt.Errorf("completion: name one shell: %s", strings.Join(completionShells, ", "))
+			case !slices.Contains(completionShells, args[0]):
+				return fmt.Errorf("completion: %q: unknown shell (use %s)", args[0], strings.Join(completionShells, ", "))
+			}
+			return nil
+		},
+		RunE: func(cmd *cobra.Command, args []string) error {
+			root := cmd.Root()
+			switch args[0] {
+			case "bash":
+				return root.GenBashCompletionV2(g.stdout, true)
+			case "zsh":
+				return root.GenZshCompletion(g.stdout)
+			case "fish":
+				return root.GenFishCompletion(g.stdout, true)
+			}
+			return root.GenPowerShellCompletionWithDesc(g.stdout)
+		},
+	}
 }

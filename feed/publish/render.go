@@ -13,6 +13,7 @@ import (
 	"sync"
 	"time"
 
+	"heliocal/config"
 	"heliocal/feed"
 	"heliocal/feed/ical"
 )
@@ -113,9 +114,12 @@ func (o *RenderOptions) base() (*url.URL, error) {
 	if o.BaseURL == "" {
 		return nil, nil
 	}
+	if err := config.CheckBaseURL(o.BaseURL); err != nil {
+		return nil, fmt.Errorf("publish: base URL: %w", err)
+	}
 	u, err := url.Parse(o.BaseURL)
-	if err != nil || (u.Scheme != "https" && u.Scheme != "http") || u.Host == "" || u.RawQuery != "" || u.Fragment != "" {
-		return nil, fmt.Errorf("publish: base URL %q: must be an absolute http:// or https:// URL without query or fragment", o.BaseURL)
+	if err != nil {
+		return nil, fmt.Errorf("publish: base URL: %w", err)
 	}
 	if !strings.HasSuffix(u.Path, "/") {
 		u.Path += "/"

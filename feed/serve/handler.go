@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"log/slog"
 	"net/http"
+	"net/url"
 	"runtime/debug"
 	"strconv"
 	"strings"
@@ -127,7 +128,7 @@ func (s *Server) finish(rec *recorder, r *http.Request, route string, start time
 		s.access.LogAttrs(ctx, slog.LevelInfo, "request",
 			slog.String("method", r.Method),
 			slog.String("path", truncate(r.URL.Path, 256)),
-			slog.String("query", truncate(r.URL.RawQuery, 256)),
+			slog.String("params", truncate(paramNames(r.URL.RawQuery), 256)),
 			slog.String("route", route),
 			slog.Int("status", rec.status),
 			slog.Int64("bytes", rec.bytes),
@@ -136,6 +137,30 @@ func (s *Server) finish(rec *recorder, r *http.Request, route string, start time
 			slog.String("user_agent", truncate(r.UserAgent(), 256)),
 		)
 	}
+}
+
+// paramNames lists the names of a query's parameters, comma-separated, in
+// the order given, without their values: a value may carry a token or a
+// password that has no place in a log (e.g. "lat,lon,tz").
+func paramNames(rawQuery string) string {
+	if rawQuery == "" {
+		return ""
+	}
+	var b strings.Builder
+	for part := range strings.SplitSeq(rawQuery, "&") {
+		if part == "" {
+			continue
+		}
+		name, _, _ := strings.Cut(part, "=")
+		if n, err := url.QueryUnescape(name); err == nil {
+			name = n
+		}
+		if b.Len() > 0 {
+			b.WriteByte(',')
+		}
+		b.WriteString(name)
+	}
+	return b.String()
 }
 
 func truncate(s string, n int) string {

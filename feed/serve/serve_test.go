@@ -456,10 +456,24 @@ func TestAccessLog(t *testing.T) {
 			t.Errorf("access log %s = %v, want %v", k, line[k], want)
 		}
 	}
-	for _, k := range []string{"duration", "remote", "user_agent", "query"} {
+	for _, k := range []string{"duration", "remote", "user_agent", "params"} {
 		if _, ok := line[k]; !ok {
 			t.Errorf("access log lacks %s", k)
 		}
+	}
+
+	// A query's values never reach the log, only the parameter names.
+	buf.Reset()
+	body(t, get(t, s.Handler(), "GET", "/feeds/meadowbrook-sun.ics?token=s3cr3t-value&lat=47.5&x%20y=p%40ss"))
+	if strings.Contains(buf.String(), "s3cr3t") || strings.Contains(buf.String(), "47.5") || strings.Contains(buf.String(), "p@ss") || strings.Contains(buf.String(), "p%40ss") {
+		t.Errorf("access log records query values: %s", buf.String())
+	}
+	line = nil
+	if err := json.Unmarshal(buf.Bytes(), &line); err != nil {
+		t.Fatalf("access log %q: %v", buf.String(), err)
+	}
+	if line["params"] != "token,lat,x y" {
+		t.Errorf("access log params = %v, want the names token,lat,x y", line["params"])
 	}
 }
 

@@ -30,6 +30,9 @@
 //	moonrise.go               moonrise, moonset, transit                   USNO definitions, the search of horizon.go
 //	darksky.go                dark-sky windows                             USNO astronomical twilight; moonrise.go
 //	lunar_apsides.go          the Moon's perigee and apogee                Meeus ch. 50 (eq. 50.1 start), extrema of the ELP/MPP02 distance
+//	eclipse*.go               solar eclipses: Besselian elements, local    Explanatory Supplement to the Astronomical Almanac (1992), ch. 8.3;
+//	                          circumstances; lunar eclipses: contacts,     k = 0.2725076 (IAU 1982); lunar shadow: Danjon (1951) as in Espenak &
+//	                          magnitudes, the Moon at the site             Meeus, Five Millennium Canon of Lunar Eclipses (NASA/TP-2009-214172)
 //
 // # Conventions
 //

@@ -15,7 +15,8 @@ type Kind struct {
 	Name string
 	// Altitude is the threshold in degrees for "sun-altitude:<deg>".
 	Altitude float64
-	// DayLength is the threshold for "photoperiod:<duration>".
+	// DayLength is the threshold for "photoperiod:<duration>" and the
+	// target for "lighting:<duration>".
 	DayLength time.Duration
 }
 
@@ -28,6 +29,10 @@ const (
 	// the day length (sunrise to sunset) crosses <duration> (0 < d < 24h),
 	// rising or falling.
 	KindPhotoperiod = "photoperiod"
+	// KindLighting is written "lighting:<duration>": on each date whose
+	// natural day is shorter than the target photoperiod <duration>
+	// (0 < d < 24h), the lamp periods that make up the difference.
+	KindLighting = "lighting"
 )
 
 // Kind families, returned by Kind.Family.
@@ -78,6 +83,7 @@ var kindTable = []kindDef{
 	{name: "perihelion", family: FamilyYear, flags: flagYearly, doc: "the Earth at its least distance from the Sun"},
 	{name: "aphelion", family: FamilyYear, flags: flagYearly, doc: "the Earth at its greatest distance from the Sun"},
 	{name: KindPhotoperiod, family: FamilySun, flags: flagParam, doc: "the dates on which day length crosses <duration>, rising or falling (0 < duration < 24h)"},
+	{name: KindLighting, family: FamilySun, flags: flagParam | flagSpan, doc: "supplemental lighting: the lamp periods that bring a short natural day up to <duration> (0 < duration < 24h)"},
 	{name: "daily-summary", family: FamilySun, doc: "an all-day entry per day: sunrise–sunset, day length, twilight"},
 	{name: "new-moon", family: FamilyMoon, flags: flagMoon | flagYearly, doc: "apparent geocentric longitude of the Moon equals the Sun's"},
 	{name: "first-quarter", family: FamilyMoon, flags: flagMoon | flagYearly, doc: "Moon 90° east of the Sun"},
@@ -121,6 +127,8 @@ var KindExamples = func() []string {
 			ex[i] = "sun-altitude:-3.5"
 		case KindPhotoperiod:
 			ex[i] = "photoperiod:12h30m"
+		case KindLighting:
+			ex[i] = "lighting:16h"
 		default:
 			ex[i] = d.name
 		}
@@ -203,18 +211,18 @@ func ParseKind(s string) (Kind, error) {
 			return Kind{}, &KindError{Value: s, Msg: "altitude must be within -90..90 (exclusive)", Hint: "civil twilight is -6, the horizon 0"}
 		}
 		return Kind{Name: KindSunAltitude, Altitude: deg}, nil
-	default: // KindPhotoperiod
+	default: // KindPhotoperiod, KindLighting
 		if param == "" {
-			return Kind{}, &KindError{Value: s, Msg: "needs a day length", Hint: `e.g. "photoperiod:12h" or "photoperiod:14h30m"`}
+			return Kind{}, &KindError{Value: s, Msg: "needs a day length", Hint: fmt.Sprintf(`e.g. "%s:12h" or "%s:14h30m"`, d.name, d.name)}
 		}
 		dur, err := time.ParseDuration(param)
 		if err != nil {
-			return Kind{}, &KindError{Value: s, Msg: "malformed day length", Hint: `write hours and minutes with units, e.g. "photoperiod:14h30m"`}
+			return Kind{}, &KindError{Value: s, Msg: "malformed day length", Hint: fmt.Sprintf(`write hours and minutes with units, e.g. "%s:14h30m"`, d.name)}
 		}
 		if !(dur > 0 && dur < 24*time.Hour) {
-			return Kind{}, &KindError{Value: s, Msg: "day length must be longer than 0 and shorter than 24h", Hint: `e.g. "photoperiod:12h"`}
+			return Kind{}, &KindError{Value: s, Msg: "day length must be longer than 0 and shorter than 24h", Hint: fmt.Sprintf(`e.g. "%s:12h"`, d.name)}
 		}
-		return Kind{Name: KindPhotoperiod, DayLength: dur}, nil
+		return Kind{Name: d.name, DayLength: dur}, nil
 	}
 }
 
@@ -233,8 +241,8 @@ func (k Kind) String() string {
 	switch k.Name {
 	case KindSunAltitude:
 		return KindSunAltitude + ":" + strconv.FormatFloat(k.Altitude, 'f', -1, 64)
-	case KindPhotoperiod:
-		return KindPhotoperiod + ":" + shortDuration(k.DayLength)
+	case KindPhotoperiod, KindLighting:
+		return k.Name + ":" + shortDuration(k.DayLength)
 	}
 	return k.Name
 }

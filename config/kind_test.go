@@ -16,7 +16,7 @@ func TestKindVocabulary(t *testing.T) {
 		"civil-dawn", "civil-dusk", "nautical-dawn", "nautical-dusk", "astronomical-dawn", "astronomical-dusk",
 		"golden-hour", "blue-hour", "sun-altitude",
 		"march-equinox", "june-solstice", "september-equinox", "december-solstice", "seasons", "cross-quarter",
-		"perihelion", "aphelion", "photoperiod", "daily-summary",
+		"perihelion", "aphelion", "photoperiod", "lighting", "daily-summary",
 		"new-moon", "first-quarter", "full-moon", "last-quarter", "moon-phases",
 		"moonrise", "moonset", "moon-transit", "dark-window",
 	}
@@ -56,6 +56,8 @@ func TestParseKind(t *testing.T) {
 		{"photoperiod:14h30m", Kind{Name: "photoperiod", DayLength: 14*time.Hour + 30*time.Minute}, ""},
 		{"photoperiod:870m", Kind{Name: "photoperiod", DayLength: 14*time.Hour + 30*time.Minute}, "photoperiod:14h30m"},
 		{"photoperiod:12h0m30s", Kind{Name: "photoperiod", DayLength: 12*time.Hour + 30*time.Second}, ""},
+		{"lighting:16h", Kind{Name: "lighting", DayLength: 16 * time.Hour}, ""},
+		{"Lighting:15h30m", Kind{Name: "lighting", DayLength: 15*time.Hour + 30*time.Minute}, "lighting:15h30m"},
 		{"moon-phases", Kind{Name: "moon-phases"}, ""},
 	}
 	for _, tc := range tests {
@@ -133,7 +135,7 @@ func TestKindPredicates(t *testing.T) {
 			t.Errorf("%s: got %q, want %q", what, got, want)
 		}
 	}
-	check("IsSpan", is(Kind.IsSpan), []string{"golden-hour", "blue-hour", "dark-window"})
+	check("IsSpan", is(Kind.IsSpan), []string{"golden-hour", "blue-hour", "lighting", "dark-window"})
 	check("IsMoon", is(Kind.IsMoon), []string{"new-moon", "first-quarter", "full-moon", "last-quarter", "moon-phases", "moonrise", "moonset", "moon-transit", "dark-window"})
 	check("IsYearly", is(Kind.IsYearly), []string{"march-equinox", "june-solstice", "september-equinox", "december-solstice", "seasons", "cross-quarter", "perihelion", "aphelion", "new-moon", "first-quarter", "full-moon", "last-quarter", "moon-phases"})
 	check("IsGroup", is(Kind.IsGroup), []string{"seasons", "moon-phases"})

@@ -44,6 +44,7 @@ type Feed struct {
 	Description string     `mapstructure:"description"`
 	Site        string     `mapstructure:"site"`
 	Kinds       []KindSpec `mapstructure:"kinds"`
+	Plans       []Plan     `mapstructure:"plans"` // entries anchored to the sky (see Plan)
 	DaysBack    int        `mapstructure:"days_back"`  // default 30
 	DaysAhead   int        `mapstructure:"days_ahead"` // default 365
 	Color       string     `mapstructure:"color"`      // CSS3 colour name
@@ -61,6 +62,46 @@ type KindSpec struct {
 	// MaxIllumination applies to dark-window: the Moon counts as absent while
 	// its illuminated fraction is below this (0..1); default 0 (Moon must be down).
 	MaxIllumination float64 `mapstructure:"max_illumination"`
+
+	// Alarm, when set, replaces the feed's alarm for this kind's timed
+	// entries ("0s" for none).
+	Alarm *Duration `mapstructure:"alarm"`
+	// MinDuration drops spans shorter than this (span kinds only).
+	MinDuration Duration `mapstructure:"min_duration"`
+	// Weekdays and Months keep only the entries on these local dates
+	// ("mon".."sun", "jan".."dec"); empty keeps every date.
+	Weekdays []string `mapstructure:"weekdays"`
+	Months   []string `mapstructure:"months"`
+
+	// Lighting options (kind lighting:<duration> only).
+	Lamps      string `mapstructure:"lamps"`       // "evening" (default), "morning" or "both"
+	Natural    string `mapstructure:"natural"`     // "sunrise-sunset" (default) or "civil"
+	LatestOff  string `mapstructure:"latest_off"`  // local clock "HH:MM", optional
+	EarliestOn string `mapstructure:"earliest_on"` // local clock "HH:MM", optional
+}
+
+// Plan is an entry the user writes whose dates and times the sky sets:
+// "Public stargazing night, the Saturday nearest new moon, from
+// astronomical dusk to 23:30".
+type Plan struct {
+	Title       string `mapstructure:"title"`
+	Description string `mapstructure:"description"`
+	// Date is the date rule (see ParseDateRule): "every friday",
+	// "every 04-25", "2027-06-12", "full-moon", "saturday nearest new-moon".
+	Date string `mapstructure:"date"`
+	// Start and End are times (see ParseTimeSpec): an event kind with an
+	// optional offset ("sunset+30m") or a local clock time ("20:00"). No
+	// Start makes the plan all-day. An End before the Start is on the next day.
+	Start string `mapstructure:"start"`
+	End   string `mapstructure:"end"`
+	// For is the length of the plan, instead of End.
+	For Duration `mapstructure:"for"`
+	// Months and Weekdays keep only the dates in these months and on these
+	// days of the week; empty keeps every date.
+	Months   []string `mapstructure:"months"`
+	Weekdays []string `mapstructure:"weekdays"`
+	// Alarm, when set, replaces the feed's alarm for this plan.
+	Alarm *Duration `mapstructure:"alarm"`
 }
 
 // Duration is a time.Duration written in the file as "30m", "12h30m" or "-15m".

@@ -423,8 +423,11 @@ func (f *Feed) validate(ps *problems, p string) {
 	checkID(ps, p+".id", f.ID, "feed")
 	checkText(ps, p+".title", f.Title, false, MaxTextLength)
 	checkText(ps, p+".description", f.Description, true, 4000)
-	if len(f.Kinds) == 0 {
-		ps.add(p+".kinds", "", "no kinds: a feed needs at least one event kind", `e.g. kinds: [sunrise, sunset]`)
+	if len(f.Kinds) == 0 && len(f.Plans) == 0 {
+		ps.add(p+".kinds", "", "no kinds: a feed needs at least one event kind or plan", `e.g. kinds: [sunrise, sunset]`)
+	}
+	for j := range f.Plans {
+		f.Plans[j].validate(ps, fmt.Sprintf("%s.plans[%d]", p, j))
 	}
 	type key struct {
 		kind   Kind
@@ -497,7 +500,7 @@ func (ks *KindSpec) validate(ps *problems, p string) {
 	}
 	if o := ks.Offset.D(); o < -MaxOffset || o > MaxOffset {
 		ps.add(p+".offset", ks.Offset.String(), "must be within -12h..12h", `e.g. "-30m" for 30 minutes before`)
-	} else if o != 0 && ks.Kind.IsAllDay() {
+	} else if o != 0 && (ks.Kind.IsAllDay() || ks.Kind.Name == KindLighting) {
 		ps.add(p+".offset", ks.Offset.String(), fmt.Sprintf("has no meaning for %s: its entries name a date, not a time", ks.Kind.Name), "remove the offset")
 	}
 	checkText(ps, p+".label", ks.Label, false, MaxTextLength)
@@ -508,4 +511,5 @@ func (ks *KindSpec) validate(ps *problems, p string) {
 	case mi != 0 && ks.Kind.Name != "dark-window":
 		ps.add(p+".max_illumination", ftoa(mi), "applies only to dark-window", "remove it, or use kind: dark-window")
 	}
+	ks.validateOptions(ps, p)
 }

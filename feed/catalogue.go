@@ -152,21 +152,24 @@ func PlaceOf(s *config.Site) Place {
 // UID. It stops with ctx's error when ctx is done.
 func (sky *Sky) Entries(ctx context.Context, s *config.Site, feedID string, specs []config.KindSpec, first, last time.Time) ([]Entry, error) {
 	col := &collector{ctx: ctx, sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
-	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: map[string]int{}, noted: map[string]bool{}}
+	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: map[string]int{}, noted: map[string]bool{}, last: civil(last)}
 	days := int(col.last.Sub(col.first).Hours()/24) + 1
 	w.out = make([]Entry, 0, days*(len(specs)+1))
 	if err := col.prepare(altitudes(col.p.Observer, specs)...); err != nil {
 		return nil, err
 	}
 	for _, spec := range specs {
+		w.alarm = alarmOf(spec.Alarm)
+		from := len(w.out)
 		if spec.Kind.Name == "daily-summary" {
 			if err := summaries(col, &w, spec); err != nil {
 				return nil, fmt.Errorf("%s: %w", spec.Kind, err)
 			}
+			w.out = keep(w.out, from, spec)
 			continue
 		}
 		n0, m0 := len(col.events), len(col.notes)
-		col.maxLit = spec.MaxIllumination
+		col.maxLit, col.spec = spec.MaxIllumination, spec
 		if err := col.add(spec.Kind); err != nil {
 			return nil, fmt.Errorf("%s: %w", spec.Kind, err)
 		}
@@ -177,6 +180,7 @@ func (sky *Sky) Entries(ctx context.Context, s *config.Site, feedID string, spec
 		for _, n := range col.notes[m0:] {
 			w.note(n)
 		}
+		w.out = keep(w.out, from, spec)
 		// each kind's events are done with once they are entries
 		col.events, col.notes = col.events[:0], col.notes[:0]
 	}
@@ -241,6 +245,8 @@ type entryWriter struct {
 	cats   map[string][]string
 	buf    []byte
 	out    []Entry
+	last   time.Time      // the last local date of the feed
+	alarm  *time.Duration // the alarm of the kinds entry or plan being written, nil for the feed's
 }
 
 // uid derives a stable UID from the identity of an entry, never from its
@@ -297,6 +303,15 @@ func (w *entryWriter) event(spec config.KindSpec, e Event) {
 	if !e.End.IsZero() {
 		en.End = e.End.Add(offset)
 	}
+	en.Alarm = w.alarm
+	en.Facts = Facts{Part: e.Part, Direction: e.Direction, Altitude: e.Altitude, Distance: e.Distance,
+		Illuminated: e.Illuminated, DayLength: e.DayLength, Lamp: e.Lamp, Short: e.Short}
+	if e.Kind.Name == config.KindLighting {
+		en.Title, en.Description = describeLighting(w.site, e, spec)
+		if spec.Label != "" {
+			en.Title = spec.Label
+		}
+	}
 	if spec.AllDay || e.Kind.Name == "photoperiod" {
 		d := localDate(en.Start, loc)
 		en.AllDay, en.Start, en.End, en.Date = true, d, d.AddDate(0, 0, 1), d
@@ -306,7 +321,12 @@ func (w *entryWriter) event(spec config.KindSpec, e Event) {
 }
 
 func (w *entryWriter) note(n Note) {
-	title, desc := describeNote(w.site, n)
+	var title, desc string
+	if n.Kind.Name == config.KindLighting {
+		title, desc = describeLightingNote(w.site, n, w.last)
+	} else {
+		title, desc = describeNote(w.site, n)
+	}
 	key := "note|" + n.Family + "|" + n.Date.Format(time.DateOnly)
 	if w.noted[key] {
 		return // the same state from a sibling kind (sunrise and sunset)
@@ -322,6 +342,8 @@ func (w *entryWriter) note(n Note) {
 		End:         n.Date.AddDate(0, 0, 1),
 		AllDay:      true,
 		Date:        n.Date,
+		Alarm:       w.alarm,
+		Facts:       Facts{Note: true, State: n.State, Until: n.Until},
 	})
 }
 
@@ -340,5 +362,36 @@ func (w *entryWriter) summary(spec config.KindSpec, d time.Time, length, change 
 		End:         d.AddDate(0, 0, 1),
 		AllDay:      true,
 		Date:        d,
+		Alarm:       w.alarm,
+		Facts:       Facts{DayLength: length, DayChange: change},
 	})
+}
+
+// alarmOf converts a configured alarm (nil: the feed's) for the entries.
+func alarmOf(a *config.Duration) *time.Duration {
+	if a == nil {
+		return nil
+	}
+	d := a.D()
+	return &d
+}
+
+// keep applies the date filters (weekdays, months) and min_duration of
+// spec to the entries es[from:] it produced, in place.
+func keep(es []Entry, from int, spec config.KindSpec) []Entry {
+	f, minLen := spec.Filter(), spec.MinDuration.D()
+	if f.IsZero() && minLen <= 0 {
+		return es
+	}
+	out := es[:from]
+	for _, e := range es[from:] {
+		if !f.Allows(e.Date) {
+			continue
+		}
+		if minLen > 0 && !e.AllDay && !e.End.IsZero() && e.End.Sub(e.Start) < minLen {
+			continue
+		}
+		out = append(out, e)
+	}
+	return out
 }

@@ -7,7 +7,11 @@
 // over HTTP, refreshed on the schedule of heliocal/internal/schedule.
 package feed
 
-import "time"
+import (
+	"time"
+
+	"heliocal/astro"
+)
 
 // Entry is one calendar entry: an instant (sunrise), a span (golden hour) or
 // an all-day note (the Sun does not set today).
@@ -34,6 +38,31 @@ type Entry struct {
 	AllDay bool
 	// Date is the site-local calendar date the entry belongs to, at 00:00 UTC.
 	Date time.Time
+	// Alarm, when not nil, replaces Calendar.Alarm for this entry: the
+	// reminder time before its start, 0 for none. Entries of one kinds
+	// entry or plan share the pointer.
+	Alarm *time.Duration
+	// Facts are the values behind the entry, for listings (heliocal events
+	// --feed): what the description says, as numbers.
+	Facts Facts
+}
+
+// Facts are the values an entry was written from. Zero fields do not apply.
+type Facts struct {
+	Part        string          // "morning", "evening", "all-day", "polar-night"…
+	Direction   astro.Direction // threshold crossings: rising or setting
+	Note        bool            // an all-day note for a date without the event
+	State       astro.State     // notes: on which side the Sun or Moon stays
+	Until       time.Time       // lighting notes: first date lamps are needed again (zero: not in the window)
+	Altitude    float64         // degrees (solar noon, Moon transit)
+	Distance    float64         // au (perihelion, aphelion)
+	Illuminated float64         // the Moon's illuminated fraction
+	DayLength   time.Duration   // the natural day on the date
+	DayChange   time.Duration   // daily summary: change from the day before
+	Lamp        time.Duration   // lighting: the lamp period's length
+	Short       bool            // lighting: clipped, the target is not reached
+	NextDay     bool            // plans: the end falls on the next local date
+	Missing     string          // plans: the start event that does not happen on the date
 }
 
 // Site is where a calendar's events are computed, as the feed renderers need it.

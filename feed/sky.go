@@ -35,6 +35,8 @@ type Event struct {
 	SeasonLength time.Duration // seasons: time until the next season starts
 	Illuminated  float64       // Moon events: illuminated fraction 0..1
 	Waxing       bool          // Moon events: the Moon is waxing
+	Lamp         time.Duration // lighting: length of the lamp period
+	Short        bool          // lighting: clipped by latest_off/earliest_on, the target is not reached
 }
 
 // Note is an explicit "no event" state for a local date: the Sun does not set,
@@ -47,6 +49,9 @@ type Note struct {
 	// Family groups kinds that share one note, e.g. sunrise and sunset both
 	// give "the Sun does not set today": one entry, not two.
 	Family string
+	// Until is, for a lighting note (no lamps needed), the first date on
+	// which lamps are needed again; zero when that is after the last date.
+	Until time.Time
 }
 
 // Place is where events are computed: an observer and the zone whose local
@@ -121,7 +126,7 @@ func (s *Sky) EventsFor(ctx context.Context, p Place, specs []config.KindSpec, f
 		return nil, nil, fmt.Errorf("feed: %w", err)
 	}
 	for _, k := range specs {
-		c.maxLit = k.MaxIllumination
+		c.maxLit, c.spec = k.MaxIllumination, k
 		if err := c.add(k.Kind); err != nil {
 			return nil, nil, fmt.Errorf("feed: %s: %w", k.Kind, err)
 		}
@@ -140,7 +145,8 @@ type collector struct {
 	notes       []Note
 	lengths     []time.Duration // day lengths for first-1..last, computed once
 	thresholds  map[float64]*threshold
-	maxLit      float64 // dark-window: the Moon's largest illuminated fraction still dark
+	maxLit      float64         // dark-window: the Moon's largest illuminated fraction still dark
+	spec        config.KindSpec // the options of the kind being added (lighting)
 }
 
 func (c *collector) inRange(d time.Time) bool {
@@ -190,6 +196,8 @@ func (c *collector) add(k config.Kind) error {
 		return c.apsides(k)
 	case "photoperiod":
 		return c.photoperiod(k)
+	case config.KindLighting:
+		return c.lighting(k)
 	case "daily-summary":
 		return nil // rendered from other kinds by the catalogue
 	}
@@ -256,6 +264,12 @@ func altitudes(o astro.Observer, specs []config.KindSpec) []float64 {
 		switch k := sp.Kind; k.Name {
 		case "sunrise", "sunset", "photoperiod":
 			out = append(out, o.RiseSetAltitude())
+		case config.KindLighting:
+			if sp.Natural == config.NaturalCivil {
+				out = append(out, astro.CivilTwilight)
+			} else {
+				out = append(out, o.RiseSetAltitude())
+			}
 		case "daily-summary":
 			out = append(out, o.RiseSetAltitude(), astro.CivilTwilight)
 		case "civil-dawn", "civil-dusk":

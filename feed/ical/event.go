@@ -38,6 +38,7 @@ type vevent struct {
 	start, end time.Time    // UTC, whole seconds; all-day: the dates at 00:00
 	allDay     bool
 	alarm      bool
+	trigger    string // the entry's own TRIGGER value; "" for the calendar's
 }
 
 var _ ics.Component = (*vevent)(nil)
@@ -155,7 +156,12 @@ func (ev *vevent) SerializeTo(out io.Writer, cfg *ics.SerializationConfiguration
 			desc = "Reminder"
 		}
 		b = w.textLine(b, "DESCRIPTION:", desc)
-		b = append(b, w.lines.alarmTail...)
+		if ev.trigger != "" {
+			b = w.plainLine(b, "TRIGGER:", ev.trigger)
+			b = append(append(b, "END:VALARM"...), w.cfg.NewLine...)
+		} else {
+			b = append(b, w.lines.alarmTail...)
+		}
 	}
 	b = append(b, w.lines.end...)
 	w.out = b
@@ -171,7 +177,7 @@ func (ev *vevent) size() int {
 		n += len(ev.cats.line)
 	}
 	if ev.alarm {
-		n += w.alarmSize + max(len(ev.title), len("Reminder"))
+		n += w.alarmSize + max(len(ev.title), len("Reminder")) + len(ev.trigger)
 	}
 	return n
 }

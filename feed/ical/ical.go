@@ -418,8 +418,21 @@ func (w *writer) event(i int, e *feed.Entry) (*vevent, error) {
 	ev.title = cleanText(e.Title)
 	ev.desc = cleanText(e.Description)
 	ev.cats = w.categoriesLine(e.Categories)
-	ev.alarm = w.c.Alarm > 0 && !e.AllDay
+	alarm := entryAlarm(w.c, e)
+	ev.alarm = alarm > 0 && !e.AllDay
+	if ev.alarm && alarm != w.c.Alarm {
+		ev.trigger = "-" + formatDuration(alarm)
+	}
 	return ev, nil
+}
+
+// entryAlarm is the reminder time of an entry: its own when it has one,
+// else the calendar's (0: none). All-day entries never get one.
+func entryAlarm(c *feed.Calendar, e *feed.Entry) time.Duration {
+	if e.Alarm != nil {
+		return *e.Alarm
+	}
+	return c.Alarm
 }
 
 // categoriesLine returns the CATEGORIES line of cats (nil when no category

@@ -109,7 +109,7 @@ func referenceEvent(w *writer, e *feed.Entry) (*ics.VEvent, error) {
 		extra = append(extra, &contentLine{line: "CATEGORIES:" + cats})
 	}
 	ev.Components = append(ev.Components, extra...)
-	if w.c.Alarm > 0 && !e.AllDay {
+	if alarm := entryAlarm(w.c, e); alarm > 0 && !e.AllDay {
 		a := ev.AddAlarm()
 		a.SetAction(ics.ActionDisplay)
 		desc := cleanText(e.Title)
@@ -117,7 +117,7 @@ func referenceEvent(w *writer, e *feed.Entry) (*ics.VEvent, error) {
 			desc = "Reminder"
 		}
 		a.SetProperty(ics.ComponentPropertyDescription, desc)
-		a.SetTrigger("-" + formatDuration(w.c.Alarm))
+		a.SetTrigger("-" + formatDuration(alarm))
 	}
 	return ev, nil
 }

@@ -1,0 +1,384 @@
+package config
+
+import (
+	"fmt"
+	"strconv"
+	"strings"
+	"time"
+)
+
+// Values of the lighting options (KindSpec.Lamps and KindSpec.Natural).
+const (
+	LampsEvening = "evening" // lamps from sunset until the target is reached (default)
+	LampsMorning = "morning" // lamps from before sunrise until sunrise
+	LampsBoth    = "both"    // the shortfall split equally between morning and evening
+
+	NaturalSunriseSunset = "sunrise-sunset" // the natural day is sunrise to sunset (default)
+	NaturalCivil         = "civil"          // civil dawn to civil dusk counts as natural light
+)
+
+var weekdayNames = []string{"sun", "mon", "tue", "wed", "thu", "fri", "sat"}
+
+var monthNames = []string{"jan", "feb", "mar", "apr", "may", "jun", "jul", "aug", "sep", "oct", "nov", "dec"}
+
+// ParseWeekday reads a day of the week: "mon" or "monday", any case.
+func ParseWeekday(s string) (time.Weekday, bool) {
+	t := strings.ToLower(strings.TrimSpace(s))
+	for i, n := range weekdayNames {
+		if t == n || t == strings.ToLower(time.Weekday(i).String()) {
+			return time.Weekday(i), true
+		}
+	}
+	return 0, false
+}
+
+// ParseMonth reads a month: "jan" or "january", any case.
+func ParseMonth(s string) (time.Month, bool) {
+	t := strings.ToLower(strings.TrimSpace(s))
+	for i, n := range monthNames {
+		if t == n || t == strings.ToLower(time.Month(i+1).String()) {
+			return time.Month(i + 1), true
+		}
+	}
+	return 0, false
+}
+
+// DateFilter keeps the dates on some days of the week and in some months.
+// The zero DateFilter keeps every date.
+type DateFilter struct {
+	weekdays uint8  // bit d: time.Weekday d kept; 0 = all
+	months   uint16 // bit m: time.Month m kept; 0 = all
+}
+
+// NewDateFilter builds the filter of the weekdays and months lists as
+// written in the file; names that do not parse are ignored (Validate
+// reports them).
+func NewDateFilter(weekdays, months []string) DateFilter {
+	var f DateFilter
+	for _, w := range weekdays {
+		if d, ok := ParseWeekday(w); ok {
+			f.weekdays |= 1 << d
+		}
+	}
+	for _, m := range months {
+		if mm, ok := ParseMonth(m); ok {
+			f.months |= 1 << mm
+		}
+	}
+	return f
+}
+
+// IsZero reports whether the filter keeps every date.
+func (f DateFilter) IsZero() bool { return f == DateFilter{} }
+
+// Allows reports whether the civil date d (its year, month and day) is kept.
+func (f DateFilter) Allows(d time.Time) bool {
+	if f.weekdays != 0 && f.weekdays&(1<<d.Weekday()) == 0 {
+		return false
+	}
+	return f.months == 0 || f.months&(1<<d.Month()) != 0
+}
+
+// Filter returns the date filter of a kinds entry.
+func (ks KindSpec) Filter() DateFilter { return NewDateFilter(ks.Weekdays, ks.Months) }
+
+// Filter returns the date filter of a plan.
+func (p Plan) Filter() DateFilter { return NewDateFilter(p.Weekdays, p.Months) }
+
+// ParseClock reads a local clock time "HH:MM" (00:00..23:59) and returns
+// the time since midnight.
+func ParseClock(s string) (time.Duration, error) {
+	t := strings.TrimSpace(s)
+	h, m, ok := strings.Cut(t, ":")
+	hh, err1 := strconv.Atoi(h)
+	mm, err2 := strconv.Atoi(m)
+	if !ok || err1 != nil || err2 != nil || len(m) != 2 || len(h) < 1 || len(h) > 2 || hh < 0 || hh > 23 || mm < 0 || mm > 59 {
+		return 0, fmt.Errorf("not a clock time")
+	}
+	return time.Duration(hh)*time.Hour + time.Duration(mm)*time.Minute, nil
+}
+
+// RuleError reports a date rule or a time that cannot be parsed.
+type RuleError struct {
+	Msg, Hint string
+}
+
+func (e *RuleError) Error() string {
+	if e.Hint == "" {
+		return e.Msg
+	}
+	return e.Msg + " (" + e.Hint + ")"
+}
+
+// Date rule types (DateRule.Type).
+const (
+	RuleEveryDay = iota + 1 // "every day"
+	RuleWeekly              // "every friday"
+	RuleYearly              // "every 04-25"
+	RuleOnce                // "2027-06-12"
+	RuleEvent               // "full-moon": the local date of each event
+	RuleWeekdayOf           // "saturday nearest new-moon"
+)
+
+// Relations of a RuleWeekdayOf rule.
+const (
+	RelNearest = "nearest" // the closest such weekday to the event's local date (the date itself if it is one)
+	RelBefore  = "before"  // the last such weekday strictly before the event's local date
+	RelAfter   = "after"   // the first such weekday strictly after it
+)
+
+// DateRule is a parsed plan date (Plan.Date).
+type DateRule struct {
+	Type     int
+	Weekday  time.Weekday // RuleWeekly, RuleWeekdayOf
+	Month    time.Month   // RuleYearly
+	Day      int          // RuleYearly
+	Date     time.Time    // RuleOnce, 00:00 UTC
+	Event    Kind         // RuleEvent, RuleWeekdayOf
+	Relation string       // RuleWeekdayOf: RelNearest, RelBefore or RelAfter
+}
+
+const dateRuleHint = `e.g. "every day", "every friday", "every 04-25", "2027-06-12", "full-moon", "saturday nearest new-moon"`
+
+// ParseDateRule reads a plan's date rule: "every day", "every <weekday>",
+// "every MM-DD", one date "YYYY-MM-DD", an event kind whose events name
+// dates ("full-moon", "june-solstice", "photoperiod:12h"), or
+// "<weekday> nearest|before|after <event kind>".
+func ParseDateRule(s string) (DateRule, error) {
+	f := strings.Fields(strings.ToLower(s))
+	switch {
+	case len(f) == 0:
+		return DateRule{}, &RuleError{Msg: "is empty", Hint: dateRuleHint}
+	case len(f) == 2 && f[0] == "every":
+		if f[1] == "day" {
+			return DateRule{Type: RuleEveryDay}, nil
+		}
+		if d, ok := ParseWeekday(f[1]); ok {
+			return DateRule{Type: RuleWeekly, Weekday: d}, nil
+		}
+		if t, err := time.Parse("01-02", f[1]); err == nil || f[1] == "02-29" {
+			if f[1] == "02-29" {
+				return DateRule{Type: RuleYearly, Month: time.February, Day: 29}, nil
+			}
+			return DateRule{Type: RuleYearly, Month: t.Month(), Day: t.Day()}, nil
+		}
+		return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is not a weekday, \"day\" or a date MM-DD", f[1]), Hint: `e.g. "every friday" or "every 04-25"`}
+	case len(f) == 1 && len(f[0]) == 10 && f[0][4] == '-':
+		d, err := time.Parse(time.DateOnly, f[0])
+		if err != nil {
+			return DateRule{}, &RuleError{Msg: "not a date", Hint: "write YYYY-MM-DD, e.g. 2027-06-12"}
+		}
+		return DateRule{Type: RuleOnce, Date: d}, nil
+	case len(f) == 1:
+		k, err := anchorKind(f[0])
+		if err != nil {
+			return DateRule{}, err
+		}
+		return DateRule{Type: RuleEvent, Event: k}, nil
+	case len(f) == 3:
+		d, ok := ParseWeekday(f[0])
+		if !ok {
+			return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is not a weekday", f[0]), Hint: `e.g. "saturday nearest new-moon"`}
+		}
+		if f[1] != RelNearest && f[1] != RelBefore && f[1] != RelAfter {
+			return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q: write nearest, before or after", f[1]), Hint: `e.g. "saturday nearest new-moon"`}
+		}
+		k, err := anchorKind(f[2])
+		if err != nil {
+			return DateRule{}, err
+		}
+		return DateRule{Type: RuleWeekdayOf, Weekday: d, Relation: f[1], Event: k}, nil
+	}
+	return DateRule{}, &RuleError{Msg: "not a date rule", Hint: dateRuleHint}
+}
+
+// anchorKind parses the event kind a date rule is anchored to: a kind with a
+// few events a year or a month, or photoperiod.
+func anchorKind(s string) (Kind, error) {
+	k, err := ParseKind(s)
+	if err != nil {
+		return Kind{}, &RuleError{Msg: err.Error()}
+	}
+	if !k.IsYearly() && k.Name != KindPhotoperiod {
+		return Kind{}, &RuleError{Msg: fmt.Sprintf("%q happens every day: it does not pick dates", k.String()),
+			Hint: "use a kind with a few dates a year or a month (full-moon, june-solstice, photoperiod:12h…), or \"every day\""}
+	}
+	return k, nil
+}
+
+// TimeSpec is a parsed plan time (Plan.Start, Plan.End): a local clock time
+// or an event with an offset.
+type TimeSpec struct {
+	IsClock bool
+	Clock   time.Duration // since local midnight, when IsClock
+	Event   Kind          // otherwise: the event whose time on the date is used
+	Offset  time.Duration // added to the event's time
+}
+
+const timeSpecHint = `an event with an optional offset, e.g. "sunset", "sunset+30m", "astronomical-dusk-15m", or a local time "20:00"`
+
+// ParseTimeSpec reads a plan time: "20:00", or an instant kind with an
+// optional offset within ±12h: "sunset", "sunset+30m",
+// "astronomical-dawn-1h".
+func ParseTimeSpec(s string) (TimeSpec, error) {
+	t := strings.ToLower(strings.TrimSpace(s))
+	if t == "" {
+		return TimeSpec{}, &RuleError{Msg: "is empty", Hint: timeSpecHint}
+	}
+	if t[0] >= '0' && t[0] <= '9' {
+		c, err := ParseClock(t)
+		if err != nil {
+			return TimeSpec{}, &RuleError{Msg: "not a clock time", Hint: `write HH:MM (00:00..23:59), e.g. "20:00"`}
+		}
+		return TimeSpec{IsClock: true, Clock: c}, nil
+	}
+	name, offset := t, time.Duration(0)
+	for i := len(t) - 1; i > 0; i-- {
+		if t[i] != '+' && t[i] != '-' {
+			continue
+		}
+		if d, err := time.ParseDuration(t[i:]); err == nil {
+			if _, kerr := ParseKind(t[:i]); kerr == nil {
+				name, offset = t[:i], d
+				break
+			}
+		}
+	}
+	k, err := ParseKind(name)
+	if err != nil {
+		return TimeSpec{}, &RuleError{Msg: err.Error(), Hint: timeSpecHint}
+	}
+	if !k.IsInstant() {
+		return TimeSpec{}, &RuleError{Msg: fmt.Sprintf("%q does not give one time a day", k.String()),
+			Hint: "use sunrise, sunset, solar-noon, a dawn or dusk, moonrise, moonset, moon-transit or a phase or season"}
+	}
+	if offset < -MaxOffset || offset > MaxOffset {
+		return TimeSpec{}, &RuleError{Msg: "offset must be within -12h..12h", Hint: `e.g. "sunset+30m"`}
+	}
+	return TimeSpec{Event: k, Offset: offset}, nil
+}
+
+// IsInstant reports whether a kind gives at most one instant per event a
+// plan can start or end at: not a span, a group, an all-day kind, lighting,
+// or sun-altitude (which crosses twice a day).
+func (k Kind) IsInstant() bool {
+	switch {
+	case k.IsSpan(), k.IsGroup(), k.IsAllDay(), k.Name == KindSunAltitude, k.Name == KindLighting:
+		return false
+	}
+	_, ok := kindIndex[k.Name]
+	return ok
+}
+
+// spanLimit bounds min_duration and a plan's length.
+const spanLimit = 24 * time.Hour
+
+func checkAlarm(ps *problems, path string, a *Duration) {
+	if a == nil {
+		return
+	}
+	if d := a.D(); d < 0 {
+		ps.add(path, a.String(), "must not be negative: it is the time before each event", `e.g. "15m" for 15 minutes before, "0s" for no reminder`)
+	} else if d > MaxAlarm {
+		ps.add(path, a.String(), "must be at most 7 days (168h)", `e.g. "15m" or "1h"`)
+	}
+}
+
+func checkFilter(ps *problems, p string, weekdays, months []string) {
+	for i, w := range weekdays {
+		if _, ok := ParseWeekday(w); !ok {
+			hint := "mon, tue, wed, thu, fri, sat or sun"
+			if near := closest(strings.ToLower(w), weekdayNames); near != "" {
+				hint = fmt.Sprintf("did you mean %q?", near)
+			}
+			ps.add(fmt.Sprintf("%s.weekdays[%d]", p, i), w, "not a day of the week", hint)
+		}
+	}
+	for i, m := range months {
+		if _, ok := ParseMonth(m); !ok {
+			hint := "jan, feb, mar, apr, may, jun, jul, aug, sep, oct, nov or dec"
+			if near := closest(strings.ToLower(m), monthNames); near != "" {
+				hint = fmt.Sprintf("did you mean %q?", near)
+			}
+			ps.add(fmt.Sprintf("%s.months[%d]", p, i), m, "not a month", hint)
+		}
+	}
+}
+
+// validateOptions checks the per-entry options of a kinds entry: alarm,
+// min_duration, weekdays, months and the lighting options.
+func (ks *KindSpec) validateOptions(ps *problems, p string) {
+	checkAlarm(ps, p+".alarm", ks.Alarm)
+	if md := ks.MinDuration.D(); md < 0 || md > spanLimit {
+		ps.add(p+".min_duration", ks.MinDuration.String(), "must be within 0..24h", `e.g. "45m"`)
+	} else if md != 0 && !ks.Kind.IsSpan() {
+		ps.add(p+".min_duration", ks.MinDuration.String(), fmt.Sprintf("has no meaning for %s: its events have no length", ks.Kind.String()),
+			"use it on dark-window, golden-hour, blue-hour or lighting")
+	}
+	checkFilter(ps, p, ks.Weekdays, ks.Months)
+	lighting := ks.Kind.Name == KindLighting
+	onlyLighting := func(key, v string) bool {
+		if v != "" && !lighting {
+			ps.add(p+"."+key, v, "applies only to lighting", `remove it, or use kind: "lighting:16h"`)
+			return false
+		}
+		return v != ""
+	}
+	if onlyLighting("lamps", ks.Lamps) && ks.Lamps != LampsEvening && ks.Lamps != LampsMorning && ks.Lamps != LampsBoth {
+		ps.add(p+".lamps", ks.Lamps, "must be evening, morning or both", "when the lamps run: after sunset, before sunrise, or half of each")
+	}
+	if onlyLighting("natural", ks.Natural) && ks.Natural != NaturalSunriseSunset && ks.Natural != NaturalCivil {
+		ps.add(p+".natural", ks.Natural, "must be sunrise-sunset or civil", "what counts as natural light: the Sun up, or civil twilight too")
+	}
+	for _, c := range []struct{ key, v string }{{"latest_off", ks.LatestOff}, {"earliest_on", ks.EarliestOn}} {
+		if onlyLighting(c.key, c.v) {
+			if _, err := ParseClock(c.v); err != nil {
+				ps.add(p+"."+c.key, c.v, "not a clock time", `write local time as HH:MM, e.g. "22:00"`)
+			}
+		}
+	}
+}
+
+func (pl *Plan) validate(ps *problems, p string) {
+	if strings.TrimSpace(pl.Title) == "" {
+		ps.add(p+".title", "", "is required", `e.g. "Public stargazing night"`)
+	}
+	checkText(ps, p+".title", pl.Title, false, MaxTextLength)
+	checkText(ps, p+".description", pl.Description, true, 4000)
+	if strings.TrimSpace(pl.Date) == "" {
+		ps.add(p+".date", "", "is required", dateRuleHint)
+	} else if _, err := ParseDateRule(pl.Date); err != nil {
+		re := err.(*RuleError)
+		ps.add(p+".date", pl.Date, re.Msg, firstNonEmpty(re.Hint, dateRuleHint))
+	}
+	for _, t := range []struct{ key, v string }{{"start", pl.Start}, {"end", pl.End}} {
+		if t.v == "" {
+			continue
+		}
+		if _, err := ParseTimeSpec(t.v); err != nil {
+			re := err.(*RuleError)
+			ps.add(p+"."+t.key, t.v, re.Msg, firstNonEmpty(re.Hint, timeSpecHint))
+		}
+	}
+	switch {
+	case pl.Start == "" && (pl.End != "" || pl.For != 0):
+		v, key := pl.End, "end"
+		if pl.End == "" {
+			v, key = pl.For.String(), "for"
+		}
+		ps.add(p+"."+key, v, "needs a start: a plan without start is all-day", `add e.g. start: "20:00", or remove it`)
+	case pl.End != "" && pl.For != 0:
+		ps.add(p+".for", pl.For.String(), "give either end or for, not both", "remove one")
+	case pl.For < 0 || pl.For > Duration(spanLimit):
+		ps.add(p+".for", pl.For.String(), "must be within 0..24h", `e.g. "3h"`)
+	}
+	checkFilter(ps, p, pl.Weekdays, pl.Months)
+	checkAlarm(ps, p+".alarm", pl.Alarm)
+}
+
+func firstNonEmpty(a, b string) string {
+	if a != "" {
+		return a
+	}
+	return b
+}

@@ -244,6 +244,8 @@ type jsonEvent struct {
 	Lit       *float64 `json:"illuminated,omitempty"`
 	// Uncertainty is set on far-future seasons, apsides and phases.
 	Uncertainty *float64 `json:"uncertainty_s,omitempty"`
+	Lamp        *float64 `json:"lamp_s,omitempty"`
+	Short       bool     `json:"target_not_reached,omitempty"`
 }
 
 type jsonNote struct {
@@ -291,9 +293,13 @@ func toJSONEvent(e feed.Event) jsonEvent {
 		}
 	}
 	switch e.Kind.Name {
-	case "photoperiod", "sunrise", "sunset":
+	case "photoperiod", "sunrise", "sunset", config.KindLighting:
 		s := math.Round(e.DayLength.Seconds()*1000) / 1000
 		j.DayLength = &s
+	}
+	if e.Kind.Name == config.KindLighting {
+		l := math.Round(e.Lamp.Seconds()*1000) / 1000
+		j.Lamp, j.Short = &l, e.Short
 	}
 	if strings.Contains(e.Kind.Name, "moon") || e.Kind.Name == "first-quarter" || e.Kind.Name == "last-quarter" {
 		f := math.Round(e.Illuminated*1e4) / 1e4

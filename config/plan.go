@@ -1,6 +1,7 @@
 package config
 
 import (
+	"errors"
 	"fmt"
 	"strconv"
 	"strings"
@@ -232,7 +233,12 @@ func ParseTimeSpec(s string) (TimeSpec, error) {
 		}
 		return TimeSpec{IsClock: true, Clock: c}, nil
 	}
+	// The offset is the longest tail "+<duration>" or "-<duration>" after
+	// a kind name ("sun-altitude:-3-10m" is sun-altitude:-3, 10 min before);
+	// when no prefix is a kind, the last such tail, so that the error names
+	// the kind as written.
 	name, offset := t, time.Duration(0)
+	found := false
 	for i := len(t) - 1; i > 0; i-- {
 		if t[i] != '+' && t[i] != '-' {
 			continue
@@ -242,11 +248,18 @@ func ParseTimeSpec(s string) (TimeSpec, error) {
 				name, offset = t[:i], d
 				break
 			}
+			if !found {
+				name, offset, found = t[:i], d, true
+			}
 		}
 	}
 	k, err := ParseKind(name)
 	if err != nil {
-		return TimeSpec{}, &RuleError{Msg: err.Error(), Hint: timeSpecHint}
+		var ke *KindError
+		if errors.As(err, &ke) && strings.HasPrefix(ke.Hint, "did you mean") {
+			return TimeSpec{}, &RuleError{Msg: fmt.Sprintf("unknown kind %q", ke.Value), Hint: ke.Hint}
+		}
+		return TimeSpec{}, &RuleError{Msg: fmt.Sprintf("unknown kind %q", name), Hint: timeSpecHint}
 	}
 	if !k.IsInstant() {
 		return TimeSpec{}, &RuleError{Msg: fmt.Sprintf("%q does not give one time a day", k.String()),

@@ -500,7 +500,9 @@ func (ks *KindSpec) validate(ps *problems, p string) {
 	}
 	if o := ks.Offset.D(); o < -MaxOffset || o > MaxOffset {
 		ps.add(p+".offset", ks.Offset.String(), "must be within -12h..12h", `e.g. "-30m" for 30 minutes before`)
-	} else if o != 0 && (ks.Kind.IsAllDay() || ks.Kind.Name == KindLighting) {
+	} else if o != 0 && ks.Kind.Name == KindLighting {
+		ps.add(p+".offset", ks.Offset.String(), "has no meaning for lighting: the lamp times follow from the target", "remove the offset; use latest_off or earliest_on to bound the lamps")
+	} else if o != 0 && ks.Kind.IsAllDay() {
 		ps.add(p+".offset", ks.Offset.String(), fmt.Sprintf("has no meaning for %s: its entries name a date, not a time", ks.Kind.Name), "remove the offset")
 	}
 	checkText(ps, p+".label", ks.Label, false, MaxTextLength)

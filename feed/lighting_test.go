@@ -1,0 +1,250 @@
+package feed
+
+import (
+	"encoding/csv"
+	"os"
+	"strings"
+	"testing"
+	"time"
+
+	"heliocal/config"
+)
+
+// usnoRow is one row of testdata/reference/sun-times.csv.
+type usnoRow struct{ id, place, date, kind, local string }
+
+func usnoRows(t *testing.T) []usnoRow {
+	t.Helper()
+	f, err := os.Open("../testdata/reference/sun-times.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	recs, err := csv.NewReader(f).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	var out []usnoRow
+	for _, r := range recs[1:] {
+		out = append(out, usnoRow{id: r[0], place: r[1], date: r[5], kind: r[6], local: r[7]})
+	}
+	return out
+}
+
+// usnoDay is one date of a USNO table: the listed local times by kind
+// ("sunrise", "sunset", "civil_dawn", "civil_dusk") and the row ids.
+type usnoDay struct {
+	date  string
+	times map[string]time.Time
+	ids   []string
+}
+
+// usnoDays groups the rows of one place by date, reading local times in zone.
+func usnoDays(t *testing.T, placePrefix string, zone *time.Location) []*usnoDay {
+	t.Helper()
+	var days []*usnoDay
+	byDate := map[string]*usnoDay{}
+	for _, r := range usnoRows(t) {
+		if !strings.HasPrefix(r.place, placePrefix) {
+			continue
+		}
+		d := byDate[r.date]
+		if d == nil {
+			d = &usnoDay{date: r.date, times: map[string]time.Time{}}
+			byDate[r.date] = d
+			days = append(days, d)
+		}
+		d.ids = append(d.ids, r.id)
+		if tm, err := time.ParseInLocation("2006-01-02 15:04", r.date+" "+r.local, zone); err == nil {
+			d.times[r.kind] = tm
+		}
+	}
+	return days
+}
+
+func lightingSpec(t *testing.T, kind string, opts func(*config.KindSpec)) config.KindSpec {
+	t.Helper()
+	k, err := config.ParseKind(kind)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ks := config.KindSpec{Kind: k}
+	if opts != nil {
+		opts(&ks)
+	}
+	return ks
+}
+
+func near(a, b time.Time, tol time.Duration) bool {
+	d := a.Sub(b)
+	return d <= tol && d >= -tol
+}
+
+// TestLightingAgainstUSNO checks lamp periods against the natural day of
+// the USNO one-year tables for Ithaca, NY (42°27′ N, 76°30′ W, UTC−4 without
+// daylight saving), 2015: 'Rise and Set for the Sun' and 'Civil Twilight',
+// rows sun-0001..sun-0090 of testdata/reference/sun-times.csv. With the
+// target T, evening lamps run from the table's sunset to its sunrise + T,
+// morning lamps from sunset − T to sunrise, and "both" splits the shortfall;
+// with natural: civil, civil dusk and dawn take the place of sunset and
+// sunrise. Tolerance 75 s: each table time is rounded to the minute.
+func TestLightingAgainstUSNO(t *testing.T) {
+	zone := time.FixedZone("UTC-04:00", -4*3600)
+	s := &config.Site{ID: "ithaca", Name: "Ithaca", Latitude: 42.45, Longitude: -76.5, TimeZone: config.Zone{Location: zone}}
+	sk := sky(t, "2015-01-01", "2015-12-31")
+	const tol = 75 * time.Second
+	target := 16 * time.Hour
+	days := usnoDays(t, "Ithaca", zone)
+	checked := 0
+	for _, day := range days {
+		rise, set := day.times["sunrise"], day.times["sunset"]
+		dawn, dusk := day.times["civil_dawn"], day.times["civil_dusk"]
+		if rise.IsZero() || set.IsZero() {
+			continue
+		}
+		short := target - set.Sub(rise)
+		cases := []struct {
+			name   string
+			opts   func(*config.KindSpec)
+			starts []time.Time
+			ends   []time.Time
+		}{
+			{"evening", nil, []time.Time{set}, []time.Time{rise.Add(target)}},
+			{"morning", func(ks *config.KindSpec) { ks.Lamps = config.LampsMorning }, []time.Time{set.Add(-target)}, []time.Time{rise}},
+			{"both", func(ks *config.KindSpec) { ks.Lamps = config.LampsBoth },
+				[]time.Time{rise.Add(-short / 2), set}, []time.Time{rise, set.Add(short / 2)}},
+		}
+		if !dawn.IsZero() && !dusk.IsZero() {
+			cases = append(cases, struct {
+				name   string
+				opts   func(*config.KindSpec)
+				starts []time.Time
+				ends   []time.Time
+			}{"civil", func(ks *config.KindSpec) { ks.Natural = config.NaturalCivil }, []time.Time{dusk}, []time.Time{dawn.Add(target)}})
+		}
+		for _, tc := range cases {
+			spec := lightingSpec(t, "lighting:16h", tc.opts)
+			evs, notes, err := sk.EventsFor(PlaceOf(s), []config.KindSpec{spec}, date(day.date), date(day.date))
+			if err != nil {
+				t.Fatal(err)
+			}
+			if tc.name == "civil" && dusk.Sub(dawn) >= target {
+				// the civil day is long enough: no lamps, a note
+				if len(evs) != 0 || len(notes) != 1 {
+					t.Errorf("%s civil (%v): %d periods and %d notes, want none and a note", day.date, day.ids, len(evs), len(notes))
+				}
+				continue
+			}
+			if len(notes) != 0 || len(evs) != len(tc.starts) {
+				t.Errorf("%s %s (%v): %d periods and %d notes, want %d periods", day.date, tc.name, day.ids, len(evs), len(notes), len(tc.starts))
+				continue
+			}
+			for i, e := range evs {
+				if !near(e.Start, tc.starts[i], tol) || !near(e.End, tc.ends[i], tol) {
+					t.Errorf("%s %s (%v): lamps %s–%s, want %s–%s", day.date, tc.name, day.ids,
+						e.Start.In(zone).Format("15:04:05"), e.End.In(zone).Format("15:04:05"),
+						tc.starts[i].Format("15:04"), tc.ends[i].Format("15:04"))
+				}
+				if e.Lamp != e.End.Sub(e.Start) || e.Short {
+					t.Errorf("%s %s: lamp %s, short %v", day.date, tc.name, e.Lamp, e.Short)
+				}
+			}
+			checked++
+		}
+	}
+	if checked < 25 {
+		t.Fatalf("only %d date/option pairs checked", checked)
+	}
+}
+
+// TestLightingPolarUSNO checks the polar cases at 80° N, 0° (USNO tables,
+// UT, 2015, rows sun-0169, sun-0179/0180, sun-0182): polar night on
+// 21 December gets lamps for the whole target, centred on solar noon;
+// 14 April (the Sun does not set) needs none; on 21 October the table's
+// short day (sunrise 11:02, sunset 12:24) gets evening lamps until sunrise
+// + 16 h, 03:02 the next morning. Tolerance 75 s (minute rounding).
+func TestLightingPolarUSNO(t *testing.T) {
+	s := site(t, "lat80", 80, 0, "UTC")
+	sk := sky(t, "2015-01-01", "2015-12-31")
+	spec := lightingSpec(t, "lighting:16h", nil)
+	run := func(d string) ([]Event, []Note) {
+		evs, notes, err := sk.EventsFor(PlaceOf(s), []config.KindSpec{spec}, date(d), date(d))
+		if err != nil {
+			t.Fatal(err)
+		}
+		return evs, notes
+	}
+	evs, notes := run("2015-12-21")
+	if len(evs) != 1 || len(notes) != 0 || evs[0].Part != partPolarNight || evs[0].Lamp != 16*time.Hour {
+		t.Fatalf("polar night: %+v %+v, want one 16 h period", evs, notes)
+	}
+	// solar noon at longitude 0 on 21 December: 12:00 UT − equation of
+	// time (+1.9 min, common practice value for the solstice)
+	noon := evs[0].Start.Add(8 * time.Hour)
+	if want := time.Date(2015, 12, 21, 11, 58, 0, 0, time.UTC); !near(noon, want, 2*time.Minute) {
+		t.Errorf("polar night lamps centred on %s, want about %s", noon, want)
+	}
+	evs, notes = run("2015-04-14")
+	if len(evs) != 0 || len(notes) != 1 || notes[0].Kind.Name != config.KindLighting {
+		t.Fatalf("midnight sun: %+v %+v, want no lamps and one note", evs, notes)
+	}
+	evs, _ = run("2015-10-21")
+	rise, set := time.Date(2015, 10, 21, 11, 2, 0, 0, time.UTC), time.Date(2015, 10, 21, 12, 24, 0, 0, time.UTC)
+	if len(evs) != 1 || !near(evs[0].Start, set, 75*time.Second) || !near(evs[0].End, rise.Add(16*time.Hour), 75*time.Second) {
+		t.Fatalf("21 October: %+v, want %s–%s", evs, set, rise.Add(16*time.Hour))
+	}
+}
+
+// TestLightingEntries checks the calendar entries: clipping at latest_off,
+// the title that says the target is not reached, and one note per stretch
+// of dates that need no lamps.
+func TestLightingEntries(t *testing.T) {
+	s := site(t, "vienna", 48.2, 16.4, "Europe/Vienna")
+	sk := sky(t, "2027-01-01", "2027-12-31")
+	spec := lightingSpec(t, "lighting:16h", func(ks *config.KindSpec) { ks.LatestOff = "22:00" })
+	es, err := sk.Entries(s, "f", []config.KindSpec{spec}, date("2027-01-10"), date("2027-01-11"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(es) != 2 {
+		t.Fatalf("%d entries, want 2", len(es))
+	}
+	for _, e := range es {
+		off := e.End.In(s.TimeZone.Location)
+		if off.Format("15:04") != "22:00" || !e.Facts.Short || !strings.Contains(e.Title, "16 h not reached") ||
+			!strings.Contains(e.Description, "not reached today") {
+			t.Errorf("%s: %q ends %s, short %v", e.Date.Format(time.DateOnly), e.Title, off, e.Facts.Short)
+		}
+	}
+	// lighting:14h over April..September: lamps until the day reaches 14 h,
+	// one note for the long days, lamps again once it falls below; the
+	// stretch is the one photoperiod:14h marks.
+	spec = lightingSpec(t, "lighting:14h", nil)
+	es, err = sk.Entries(s, "f", []config.KindSpec{spec}, date("2027-04-01"), date("2027-09-30"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var notes []Entry
+	lamps := 0
+	for _, e := range es {
+		if e.Facts.Note {
+			notes = append(notes, e)
+		} else {
+			lamps++
+		}
+	}
+	if len(notes) != 1 || !strings.HasPrefix(notes[0].Title, "No lamps needed until ") || !notes[0].AllDay {
+		t.Fatalf("notes %+v, want one", notes)
+	}
+	n := notes[0]
+	pp, _, err := sk.Events(PlaceOf(s), mustKinds(t, "photoperiod:14h"), date("2027-04-01"), date("2027-09-30"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(pp) != 2 || !n.Date.Equal(pp[0].Date) || !n.Facts.Until.Equal(pp[1].Date) {
+		t.Errorf("stretch %s..%s, photoperiod:14h crossings %+v", n.Date.Format(time.DateOnly), n.Facts.Until.Format(time.DateOnly), pp)
+	}
+	if days := int(n.Facts.Until.Sub(n.Date).Hours() / 24); lamps != 183-days {
+		t.Errorf("%d lamp entries, want %d (one per date needing lamps)", lamps, 183-days)
+	}
+}

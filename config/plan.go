@@ -113,12 +113,12 @@ func (e *RuleError) Error() string {
 
 // Date rule types (DateRule.Type).
 const (
-	RuleEveryDay = iota + 1 // "every day"
-	RuleWeekly              // "every friday"
-	RuleYearly              // "every 04-25"
-	RuleOnce                // "2027-06-12"
-	RuleEvent               // "full-moon": the local date of each event
-	RuleWeekdayOf           // "saturday nearest new-moon"
+	RuleEveryDay  = iota + 1 // "every day"
+	RuleWeekly               // "every friday"
+	RuleYearly               // "every 04-25"
+	RuleOnce                 // "2027-06-12"
+	RuleEvent                // "full-moon": the local date of each event
+	RuleWeekdayOf            // "saturday nearest new-moon"
 )
 
 // Relations of a RuleWeekdayOf rule.

@@ -44,7 +44,7 @@ type Feed struct {
 	Description string     `mapstructure:"description"`
 	Site        string     `mapstructure:"site"`
 	Kinds       []KindSpec `mapstructure:"kinds"`
-	Plans       []Plan     `mapstructure:"plans"` // entries anchored to the sky (see Plan)
+	Plans       []Plan     `mapstructure:"plans"`      // entries anchored to the sky (see Plan)
 	DaysBack    int        `mapstructure:"days_back"`  // default 30
 	DaysAhead   int        `mapstructure:"days_ahead"` // default 365
 	Color       string     `mapstructure:"color"`      // CSS3 colour name

@@ -1,6 +1,7 @@
 package feed
 
 import (
+	"context"
 	"encoding/csv"
 	"os"
 	"strings"
@@ -124,7 +125,7 @@ func TestLightingAgainstUSNO(t *testing.T) {
 		}
 		for _, tc := range cases {
 			spec := lightingSpec(t, "lighting:16h", tc.opts)
-			evs, notes, err := sk.EventsFor(PlaceOf(s), []config.KindSpec{spec}, date(day.date), date(day.date))
+			evs, notes, err := sk.EventsFor(context.Background(), PlaceOf(s), []config.KindSpec{spec}, date(day.date), date(day.date))
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -168,7 +169,7 @@ func TestLightingPolarUSNO(t *testing.T) {
 	sk := sky(t, "2015-01-01", "2015-12-31")
 	spec := lightingSpec(t, "lighting:16h", nil)
 	run := func(d string) ([]Event, []Note) {
-		evs, notes, err := sk.EventsFor(PlaceOf(s), []config.KindSpec{spec}, date(d), date(d))
+		evs, notes, err := sk.EventsFor(context.Background(), PlaceOf(s), []config.KindSpec{spec}, date(d), date(d))
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -202,7 +203,7 @@ func TestLightingEntries(t *testing.T) {
 	s := site(t, "vienna", 48.2, 16.4, "Europe/Vienna")
 	sk := sky(t, "2027-01-01", "2027-12-31")
 	spec := lightingSpec(t, "lighting:16h", func(ks *config.KindSpec) { ks.LatestOff = "22:00" })
-	es, err := sk.Entries(s, "f", []config.KindSpec{spec}, date("2027-01-10"), date("2027-01-11"))
+	es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date("2027-01-10"), date("2027-01-11"))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -220,7 +221,7 @@ func TestLightingEntries(t *testing.T) {
 	// one note for the long days, lamps again once it falls below; the
 	// stretch is the one photoperiod:14h marks.
 	spec = lightingSpec(t, "lighting:14h", nil)
-	es, err = sk.Entries(s, "f", []config.KindSpec{spec}, date("2027-04-01"), date("2027-09-30"))
+	es, err = sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date("2027-04-01"), date("2027-09-30"))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -237,7 +238,7 @@ func TestLightingEntries(t *testing.T) {
 		t.Fatalf("notes %+v, want one", notes)
 	}
 	n := notes[0]
-	pp, _, err := sk.Events(PlaceOf(s), mustKinds(t, "photoperiod:14h"), date("2027-04-01"), date("2027-09-30"))
+	pp, _, err := sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "photoperiod:14h"), date("2027-04-01"), date("2027-09-30"))
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -1,6 +1,7 @@
 package feed
 
 import (
+	"context"
 	"testing"
 	"time"
 
@@ -14,7 +15,7 @@ func TestDateFilters(t *testing.T) {
 	s := site(t, "vienna", 48.2, 16.4, "Europe/Vienna")
 	sk := sky(t, "2027-01-01", "2027-03-31")
 	spec := config.KindSpec{Kind: mustKinds(t, "sunset")[0], Weekdays: []string{"fri", "Saturday"}, Months: []string{"jan"}}
-	es, err := sk.Entries(s, "f", []config.KindSpec{spec}, date("2027-01-01"), date("2027-03-31"))
+	es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date("2027-01-01"), date("2027-03-31"))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -34,11 +35,11 @@ func TestMinDuration(t *testing.T) {
 	s := site(t, "hill", 39.08, -105.42, "America/Denver")
 	sk := sky(t, "2027-01-01", "2027-03-31")
 	k := mustKinds(t, "dark-window")[0]
-	all, err := sk.Entries(s, "f", []config.KindSpec{{Kind: k}}, date("2027-01-01"), date("2027-03-31"))
+	all, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{{Kind: k}}, date("2027-01-01"), date("2027-03-31"))
 	if err != nil {
 		t.Fatal(err)
 	}
-	kept, err := sk.Entries(s, "f", []config.KindSpec{{Kind: k, MinDuration: config.Duration(45 * time.Minute)}}, date("2027-01-01"), date("2027-03-31"))
+	kept, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{{Kind: k, MinDuration: config.Duration(45 * time.Minute)}}, date("2027-01-01"), date("2027-03-31"))
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -2,20 +2,25 @@ package main
 
 import (
 	"context"
+	"crypto/sha256"
+	"encoding/hex"
+	"encoding/json"
 	"fmt"
 	"runtime/debug"
 	"time"
 
 	"github.com/spf13/cobra"
 
+	"heliocal/config"
 	"heliocal/feed/publish"
 )
 
 type publishOptions struct {
-	out     string
-	shard   string
-	baseURL string
-	quiet   bool
+	out      string
+	shard    string
+	baseURL  string
+	quiet    bool
+	lockWait time.Duration
 }
 
 func newPublishCommand(g *globals) *cobra.Command {
@@ -28,8 +33,16 @@ with feeds.json (machine-readable list) and index.html (subscribe links and a ch
 year per site). Each file is written to a temporary file and renamed, so subscribers never
 see a half-written feed; files whose bytes did not change are not rewritten.
 
-With --shard i/n (i counted from 0) only the feeds whose id hashes to i are published, so n
-workers can share a large configuration; the last shard to finish writes the index.
+With --shard i/n (i counted from 0, n at most 10000) only the feeds whose id hashes to i are
+published, so n workers can share a large configuration; the last shard to finish writes the
+index.
+
+Runs into one directory compute in parallel and take turns to change it: each holds the lock
+file .heliocal-publish.lock there only while it renames its files and updates feeds.json. A run
+that finds the lock taken waits for it (up to --lock-wait, then exit 1). feeds.json never lists
+a file that is not on disk with the listed size and sha256, even after a crash or a kill. A
+sharded run refuses (exit 1) a directory where an unfinished sharded run of another
+configuration or shard count has written within the last hour.
 
 Without --config, ./heliocal.yaml is used if present, else the built-in demo.` + exitStatusHelp,
 		Example: `  heliocal publish
@@ -45,6 +58,7 @@ Without --config, ./heliocal.yaml is used if present, else the built-in demo.` +
 	f.StringVar(&o.shard, "shard", "", "publish only shard i of n, written i/n with i from 0 (e.g. 0/4)")
 	f.StringVar(&o.baseURL, "base-url", "", "public URL of the output directory (default: service.base_url)")
 	f.BoolVarP(&o.quiet, "quiet", "q", false, "print nothing but errors and warnings")
+	f.DurationVar(&o.lockWait, "lock-wait", publish.DefaultLockWait, "how long to wait for another publish into the same directory to finish its commit")
 	return cmd
 }
 
@@ -61,6 +75,9 @@ func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Tim
 		if shard, err = publish.ParseShard(o.shard); err != nil {
 			return badInput("--shard: %w", err)
 		}
+	}
+	if o.lockWait <= 0 {
+		return badInput("--lock-wait: %v: must be positive, e.g. 30s or 5m", o.lockWait)
 	}
 	base := cfg.Service.BaseURL
 	if o.baseURL != "" {
@@ -81,11 +98,18 @@ func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Tim
 		return err
 	}
 	opts.Shard = shard
+	if opts.Configuration, err = configDigest(cfg, base); err != nil {
+		return err
+	}
+	w := &publish.Writer{Dir: out, LockWait: o.lockWait}
+	w.Waiting = func(lock string) {
+		fmt.Fprintf(g.stderr, "heliocal: another publish is writing to %s; waiting up to %v for its lock (%s)\n", out, o.lockWait, lock)
+	}
 	if !o.quiet {
 		fmt.Fprintf(g.stderr, "heliocal: publishing %d feeds from %s to %s\n", len(srcs), src, out)
 		opts.Progress = publish.NewProgress(g.stderr)
 	}
-	st, err := publish.Publish(ctx, srcs, opts, &publish.Writer{Dir: out})
+	st, err := publish.Publish(ctx, srcs, opts, w)
 	if err != nil {
 		return err
 	}
@@ -97,4 +121,22 @@ func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Tim
 			f.ID, f.Bytes, cfg.Service.MaxFeedBytes)
 	}
 	return nil
+}
+
+// configDigest fingerprints what shapes the published files: the sites, the
+// feeds, the base URL and the refresh schedule. Shards of one run must agree
+// on it (publish refuses to mix configurations in one directory).
+func configDigest(cfg *config.Config, base string) (string, error) {
+	b, err := json.Marshal(struct {
+		Sites       []config.Site
+		Feeds       []config.Feed
+		BaseURL     string
+		Refresh     string
+		RefreshZone config.Zone
+	}{cfg.Sites, cfg.Feeds, base, cfg.Service.Refresh, cfg.Service.RefreshZone})
+	if err != nil {
+		return "", fmt.Errorf("publish: configuration fingerprint: %w", err)
+	}
+	h := sha256.Sum256(b)
+	return hex.EncodeToString(h[:]), nil
 }

@@ -193,3 +193,27 @@ func TestPublishDemoTwice(t *testing.T) {
 		t.Errorf("second run rewrote files: %s", errOut)
 	}
 }
+
+// Shards of one directory must share a configuration: a shard with another
+// base URL is refused (exit 1) while the first run is unfinished, and a
+// non-positive --lock-wait is bad input.
+func TestPublishRefusesMixedShards(t *testing.T) {
+	dir := t.TempDir()
+	code, _, errOut := runCLI(t, "publish", "-q", "--out", dir, "--shard", "0/2", "--base-url", "https://sky.example.org/a/")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	code, _, errOut = runCLI(t, "publish", "-q", "--out", dir, "--shard", "1/2", "--base-url", "https://sky.example.org/b/")
+	if code != exitFailure || !strings.Contains(errOut, "unfinished sharded run of another configuration") ||
+		!strings.Contains(errOut, "feeds-0-of-2.json") {
+		t.Errorf("exit %d, %q; want 1 and a message naming the other run", code, errOut)
+	}
+	code, _, errOut = runCLI(t, "publish", "-q", "--out", dir, "--shard", "1/2", "--base-url", "https://sky.example.org/a/")
+	if code != 0 {
+		t.Errorf("the run's own second shard: exit %d: %s", code, errOut)
+	}
+	code, _, errOut = runCLI(t, "publish", "-q", "--out", dir, "--lock-wait", "0s")
+	if code != exitInput || !strings.Contains(errOut, "--lock-wait: 0s") {
+		t.Errorf("--lock-wait 0s: exit %d, %q", code, errOut)
+	}
+}

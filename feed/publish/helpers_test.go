@@ -2,6 +2,10 @@ package publish
 
 import (
 	"encoding/csv"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io/fs"
 	"os"
 	"path/filepath"
 	"sort"
@@ -121,7 +125,8 @@ func testCalendars(t testing.TB, rev string) []*feed.Calendar {
 	}
 }
 
-// snapshot reads every file of dir (name → bytes), temporary files included.
+// snapshot reads every file of dir (name → bytes), temporary files included,
+// the (empty) lock file left out.
 func snapshot(t testing.TB, dir string) map[string][]byte {
 	t.Helper()
 	ents, err := os.ReadDir(dir)
@@ -130,7 +135,7 @@ func snapshot(t testing.TB, dir string) map[string][]byte {
 	}
 	m := map[string][]byte{}
 	for _, e := range ents {
-		if !e.Type().IsRegular() {
+		if !e.Type().IsRegular() || e.Name() == LockName {
 			continue
 		}
 		b, err := os.ReadFile(filepath.Join(dir, e.Name()))
@@ -155,4 +160,35 @@ func tempNames(t testing.TB, dir string) []string {
 		}
 	}
 	return out
+}
+
+// listedMismatches checks the promise of feeds.json: every file it lists is
+// in dir with the listed size and SHA-256. It returns one line per broken
+// entry, and the number of entries.
+func listedMismatches(t testing.TB, dir string) ([]string, int) {
+	t.Helper()
+	raw, err := os.ReadFile(filepath.Join(dir, FeedsJSONName))
+	if errors.Is(err, fs.ErrNotExist) {
+		return nil, 0
+	}
+	if err != nil {
+		t.Fatal(err)
+	}
+	var fj feedsJSON
+	if err := json.Unmarshal(raw, &fj); err != nil {
+		return []string{fmt.Sprintf("feeds.json unreadable: %v", err)}, 0
+	}
+	var bad []string
+	for _, f := range fj.Feeds {
+		b, err := os.ReadFile(filepath.Join(dir, f.File))
+		switch {
+		case err != nil:
+			bad = append(bad, fmt.Sprintf("%s: %v", f.File, err))
+		case len(b) != f.Bytes:
+			bad = append(bad, fmt.Sprintf("%s: %d bytes on disk, feeds.json says %d", f.File, len(b), f.Bytes))
+		case checksum(b) != f.Checksum:
+			bad = append(bad, fmt.Sprintf("%s: sha256 %.12s… on disk, feeds.json says %.12s…", f.File, checksum(b), f.Checksum))
+		}
+	}
+	return bad, len(fj.Feeds)
 }

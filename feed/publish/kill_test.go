@@ -4,118 +4,263 @@ import (
 	"bufio"
 	"bytes"
 	"context"
+	"encoding/json"
 	"fmt"
+	"math/rand/v2"
 	"os"
 	"os/exec"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
 )
 
+// The revisions the kill test publishes in turn: each changes every feed.
+var killRevisions = []string{"", " (revised)", " (third edition)"}
+
+// Environment of the child process of TestKilledPublishKeepsListingTrue.
+const (
+	killDirEnv = "HELIOCAL_PUBLISH_KILL_DIR"
+	killAtEnv  = "HELIOCAL_PUBLISH_KILL_AT"  // stop at this point; "loop": publish forever
+	killRevEnv = "HELIOCAL_PUBLISH_KILL_REV" // index into killRevisions
+)
+
 // stallingFile writes half of the data, tells the parent test, and hangs:
 // the moment a real crash or kill would leave a half-written file.
-type stallingFile struct{ *os.File }
+type stallingFile struct {
+	*os.File
+	point int
+}
 
 func (f stallingFile) Write(p []byte) (int, error) {
 	n, err := f.File.Write(p[:len(p)/2])
 	if err == nil {
 		err = f.File.Sync()
 	}
-	fmt.Printf("stalled in %s after %d bytes\n", f.Name(), n)
+	fmt.Printf("stopped at point %d: half-way through %s (%v)\n", f.point, f.Name(), err)
 	time.Sleep(time.Minute) // the parent kills us long before
 	os.Exit(3)
 	return n, err
 }
 
-// A publish killed (SIGKILL, no chance to clean up) while it is half-way
-// through a feed leaves every published file intact and readable; the next
-// run removes its leftover and completes the job.
-func TestKilledPublishLeavesFilesIntact(t *testing.T) {
-	if dir := os.Getenv("HELIOCAL_PUBLISH_KILL_DIR"); dir != "" {
-		calls := 0
-		w := &Writer{Dir: dir, createTemp: func(dir, pattern string) (tempFile, error) {
-			f, err := os.CreateTemp(dir, pattern)
-			calls++
-			if err != nil || calls != 2 {
-				return f, err
-			}
-			return stallingFile{f}, nil
-		}}
-		_, err := Publish(context.Background(), Calendars(testCalendars(t, " (revised)")...), testOptions(), w)
-		t.Fatalf("the child publish returned (%v) instead of stalling", err)
+// stoppingWriter counts the points of a publish at which a kill can land
+// (every temporary file being written, every rename and removal of the
+// commit) and, at point at, reports it on stdout and hangs.
+func stoppingWriter(dir string, at int) (*Writer, *int) {
+	point := 0
+	w := &Writer{Dir: dir}
+	w.step = func(what string) {
+		point++
+		if point == at {
+			fmt.Printf("stopped at point %d: before %s\n", point, what)
+			time.Sleep(time.Minute)
+			os.Exit(3)
+		}
 	}
+	w.createTemp = func(dir, pattern string) (tempFile, error) {
+		f, err := os.CreateTemp(dir, pattern)
+		if err != nil {
+			return nil, err
+		}
+		point++
+		if point == at {
+			return stallingFile{f, point}, nil
+		}
+		return f, nil
+	}
+	return w, &point
+}
+
+// killChild is the publishing process the test kills.
+func killChild(t *testing.T, dir string) {
+	rev, _ := strconv.Atoi(os.Getenv(killRevEnv))
+	if os.Getenv(killAtEnv) == "loop" {
+		fmt.Println("looping")
+		for i := rev; ; i++ {
+			r := killRevisions[i%len(killRevisions)]
+			if _, err := Publish(context.Background(), Calendars(testCalendars(t, r)...), testOptions(), &Writer{Dir: dir}); err != nil {
+				t.Fatal(err)
+			}
+		}
+	}
+	at, _ := strconv.Atoi(os.Getenv(killAtEnv))
+	w, _ := stoppingWriter(dir, at)
+	_, err := Publish(context.Background(), Calendars(testCalendars(t, killRevisions[rev])...), testOptions(), w)
+	fmt.Printf("finished: %v\n", err)
+	os.Exit(0)
+}
+
+// A publish killed with SIGKILL (no chance to clean up) at any point — while
+// a feed is half-written, before any rename of the commit, or at a random
+// instant of a run, alone or while a second run publishes into the same
+// directory — leaves every file complete (some revision's bytes), and
+// feeds.json true: every file it lists is on disk with the listed size and
+// SHA-256. The next run completes the job.
+func TestKilledPublishKeepsListingTrue(t *testing.T) {
+	if dir := os.Getenv(killDirEnv); dir != "" {
+		killChild(t, dir)
+		return
+	}
+	seed := time.Now().UnixNano()
+	if s := os.Getenv("HELIOCAL_KILL_SEED"); s != "" {
+		seed, _ = strconv.ParseInt(s, 10, 64)
+	}
+	t.Logf("seed %d (HELIOCAL_KILL_SEED reruns it)", seed)
+	rng := rand.New(rand.NewPCG(uint64(seed), 1))
+
+	// Every version a file may have: the bytes of each revision.
+	versions := map[string][][]byte{}
+	for _, rev := range killRevisions {
+		b, err := Render(context.Background(), Calendars(testCalendars(t, rev)...), testOptions())
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, f := range b.Files {
+			versions[f.Name] = append(versions[f.Name], f.Data)
+		}
+	}
+	// The points of one run over another revision's files.
+	scratch := t.TempDir()
+	publishTo(t, scratch, killRevisions[0], testOptions())
+	w, counted := stoppingWriter(scratch, -1)
+	if _, err := Publish(context.Background(), Calendars(testCalendars(t, killRevisions[1])...), testOptions(), w); err != nil {
+		t.Fatal(err)
+	}
+	points := *counted
+	t.Logf("a run has %d points a kill can stop it at", points)
 
 	dir := t.TempDir()
-	publishTo(t, dir, "", testOptions())
-	old := snapshot(t, dir)
+	publishTo(t, dir, killRevisions[0], testOptions())
+	start := func(env ...string) (*exec.Cmd, *bufio.Scanner) {
+		cmd := exec.Command(os.Args[0], "-test.run=^TestKilledPublishKeepsListingTrue$", "-test.count=1")
+		cmd.Env = append(append(os.Environ(), killDirEnv+"="+dir), env...)
+		out, err := cmd.StdoutPipe()
+		if err != nil {
+			t.Fatal(err)
+		}
+		cmd.Stderr = os.Stderr
+		if err := cmd.Start(); err != nil {
+			t.Fatal(err)
+		}
+		return cmd, bufio.NewScanner(out)
+	}
+	// waitFor reads the child's output up to a line with one of the prefixes.
+	waitFor := func(sc *bufio.Scanner, prefixes ...string) string {
+		for sc.Scan() {
+			for _, p := range prefixes {
+				if strings.HasPrefix(sc.Text(), p) {
+					return sc.Text()
+				}
+			}
+		}
+		return ""
+	}
 
-	cmd := exec.Command(os.Args[0], "-test.run=^TestKilledPublishLeavesFilesIntact$", "-test.count=1")
-	cmd.Env = append(os.Environ(), "HELIOCAL_PUBLISH_KILL_DIR="+dir)
-	out, err := cmd.StdoutPipe()
+	const trials = 40
+	stopped := map[string]int{}
+	last := 0
+	for trial := range trials {
+		// Another revision than the last one asked for, so that most runs
+		// have files to replace.
+		last = (last + 1 + rng.IntN(len(killRevisions)-1)) % len(killRevisions)
+		rev := strconv.Itoa(last)
+		var what string
+		switch mode := trial % 4; mode {
+		case 0, 1: // at a chosen point
+			at := 1 + rng.IntN(points)
+			cmd, sc := start(killAtEnv+"="+strconv.Itoa(at), killRevEnv+"="+rev)
+			what = waitFor(sc, "stopped", "finished")
+			cmd.Process.Kill()
+			cmd.Wait()
+			if strings.HasPrefix(what, "finished") {
+				// The revision was on disk already: nothing to replace.
+				what = "finished before point " + strconv.Itoa(at)
+			}
+			switch {
+			case strings.Contains(what, "half-way"):
+				stopped["mid-write"]++
+			case strings.Contains(what, "before rename"):
+				stopped["before a rename"]++
+			case strings.Contains(what, "before remove"):
+				stopped["before a removal"]++
+			default:
+				stopped["after the end"]++
+			}
+		case 2: // at a random instant of runs in a loop
+			cmd, sc := start(killAtEnv+"=loop", killRevEnv+"="+rev)
+			waitFor(sc, "looping")
+			time.Sleep(time.Duration(rng.IntN(40_000)) * time.Microsecond)
+			cmd.Process.Kill()
+			cmd.Wait()
+			what = "a random instant"
+			stopped["random"]++
+		case 3: // at a chosen point while a second run publishes another revision
+			at := 1 + rng.IntN(points)
+			other := strconv.Itoa((rng.IntN(len(killRevisions)-1) + 1 + mustAtoi(rev)) % len(killRevisions))
+			cmd, sc := start(killAtEnv+"="+strconv.Itoa(at), killRevEnv+"="+rev)
+			second, sc2 := start(killAtEnv+"=0", killRevEnv+"="+other)
+			what = waitFor(sc, "stopped", "finished")
+			cmd.Process.Kill()
+			cmd.Wait()
+			if done := waitFor(sc2, "finished"); done != "finished: <nil>" {
+				t.Errorf("trial %d: the second run: %q", trial, done)
+			}
+			second.Wait()
+			last = mustAtoi(other)
+			what = "two runs, one " + what
+			stopped["concurrent"]++
+		}
+
+		now := snapshot(t, dir)
+		for name, b := range now {
+			if strings.Contains(name, ".tmp-") || name == FeedsJSONName {
+				continue
+			}
+			ok := false
+			for _, v := range versions[name] {
+				ok = ok || bytes.Equal(b, v)
+			}
+			if !ok {
+				t.Errorf("trial %d (%s): %s is not a complete version (%d bytes)", trial, what, name, len(b))
+			}
+		}
+		var fj feedsJSON
+		if err := json.Unmarshal(now[FeedsJSONName], &fj); err != nil {
+			t.Errorf("trial %d (%s): feeds.json: %v", trial, what, err)
+		}
+		if bad, _ := listedMismatches(t, dir); len(bad) > 0 {
+			t.Errorf("trial %d (killed %s): feeds.json lists files that are not on disk as listed:\n%s", trial, what, strings.Join(bad, "\n"))
+		}
+	}
+	t.Logf("kills: %v", stopped)
+
+	// The next night: leftovers are old enough to be removed, and the run
+	// completes the job.
+	w = &Writer{Dir: dir, now: func() time.Time { return time.Now().Add(DefaultTempMaxAge + time.Minute) }}
+	if _, err := Publish(context.Background(), Calendars(testCalendars(t, killRevisions[1])...), testOptions(), w); err != nil {
+		t.Fatal(err)
+	}
+	if tmp := tempNames(t, dir); len(tmp) != 0 {
+		t.Errorf("leftovers not removed: %v", tmp)
+	}
+	want, err := Render(context.Background(), Calendars(testCalendars(t, killRevisions[1])...), testOptions())
 	if err != nil {
 		t.Fatal(err)
 	}
-	cmd.Stderr = os.Stderr
-	if err := cmd.Start(); err != nil {
-		t.Fatal(err)
-	}
-	sc := bufio.NewScanner(out)
-	stalled := ""
-	for sc.Scan() {
-		if strings.HasPrefix(sc.Text(), "stalled in ") {
-			stalled = sc.Text()
-			break
-		}
-	}
-	if err := cmd.Process.Kill(); err != nil {
-		t.Fatal(err)
-	}
-	cmd.Wait()
-	if stalled == "" {
-		t.Fatal("the child never reached the second feed")
-	}
-	t.Log("killed child: " + stalled)
-
-	newBundle, err := Render(context.Background(), Calendars(testCalendars(t, " (revised)")...), testOptions())
-	if err != nil {
-		t.Fatal(err)
-	}
-	now := snapshot(t, dir)
-	replaced := 0
-	for name, b := range old {
-		switch {
-		case bytes.Equal(now[name], b):
-		case bytes.Equal(now[name], newBundle.File(name).Data):
-			replaced++
-		default:
-			t.Errorf("%s is neither the published file nor the new one after the kill", name)
-		}
-	}
-	if replaced != 1 {
-		t.Errorf("%d files replaced before the kill, want 1 (the first feed)", replaced)
-	}
-	for _, name := range []string{"feeds.json", "index.html"} {
-		if !bytes.Equal(now[name], old[name]) {
-			t.Errorf("%s replaced although the feeds were not all written", name)
-		}
-	}
-	leftovers := tempNames(t, dir)
-	if len(leftovers) != 1 {
-		t.Fatalf("leftover temporary files %v, want the one being written", leftovers)
-	}
-
-	// The next night: the leftover is old enough to be ours for sure.
-	w := &Writer{Dir: dir, now: func() time.Time { return time.Now().Add(DefaultTempMaxAge + time.Minute) }}
-	st, err := Publish(context.Background(), Calendars(testCalendars(t, " (revised)")...), testOptions(), w)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if st.TempRemoved != 1 || len(tempNames(t, dir)) != 0 {
-		t.Errorf("leftover not removed: %+v, %v", st, tempNames(t, dir))
-	}
-	for _, f := range newBundle.Files {
+	for _, f := range want.Files {
 		if !bytes.Equal(snapshot(t, dir)[f.Name], f.Data) {
 			t.Errorf("%s not completed by the next run", f.Name)
 		}
 	}
+	if bad, n := listedMismatches(t, dir); len(bad) > 0 || n != 3 {
+		t.Errorf("after the next run feeds.json lists %d feeds, mismatches %v", n, bad)
+	}
+}
+
+func mustAtoi(s string) int {
+	n, err := strconv.Atoi(s)
+	if err != nil {
+		panic(err)
+	}
+	return n
 }

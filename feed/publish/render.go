@@ -85,6 +85,12 @@ type RenderOptions struct {
 	// Shard restricts the run to one part of the feeds; see Publish for what
 	// happens to feeds.json and index.html then.
 	Shard Shard
+	// Configuration fingerprints what the feeds are made from (the command
+	// passes a hash of the sites, the feeds and the settings that shape the
+	// output). Shards of one run must agree on it: Publish refuses to mix
+	// runs of different configurations in one directory. Empty: only the
+	// set of feed ids is compared.
+	Configuration string
 	// Workers bounds the feeds rendered at once; zero means twice GOMAXPROCS
 	// (a worker spends part of its time waiting for the disk).
 	Workers int
@@ -378,7 +384,7 @@ func Render(ctx context.Context, srcs []Source, opts RenderOptions) (*Bundle, er
 	}
 	l.finish(opts.Generated, stamps...)
 	if opts.Shard.Sharded() {
-		m, err := l.manifest(opts.Shard, idsDigest(srcs))
+		m, err := l.manifest(opts.Shard, runDigest(srcs, &opts))
 		if err != nil {
 			return nil, err
 		}

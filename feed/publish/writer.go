@@ -57,9 +57,23 @@ type Writer struct {
 	// removed at the start of WriteBundle; zero means DefaultTempMaxAge.
 	TempMaxAge time.Duration
 
+	// LockWait bounds the wait for another run's lock on Dir (see LockName);
+	// zero means DefaultLockWait.
+	LockWait time.Duration
+	// Waiting, when set, is called once when the lock is busy and the run
+	// starts waiting for it, with the lock file's path.
+	Waiting func(lockPath string)
+	// RunMaxAge is the age past which an unfinished sharded run of another
+	// configuration is taken as abandoned rather than still running; zero
+	// means DefaultRunMaxAge. See Publish.
+	RunMaxAge time.Duration
+
 	// createTemp creates the temporary file; nil means os.CreateTemp.
 	// Overridden by tests to inject failures.
 	createTemp func(dir, pattern string) (tempFile, error)
+	// step, when set, is told about each change a commit makes to the
+	// directory, just before it makes it. Tests stop a child process there.
+	step func(what string)
 	// now is the clock used to age leftovers; nil means time.Now.
 	now func() time.Time
 }
@@ -219,19 +233,32 @@ func (w *Writer) writeFile(name string, data []byte) (written bool, err error) {
 	if err := checkName(name); err != nil {
 		return false, err
 	}
-	final := filepath.Join(w.Dir, name)
-	same, err := sameRegularFile(final, data)
+	same, err := sameRegularFile(filepath.Join(w.Dir, name), data)
 	if err != nil || same {
 		return false, err
 	}
+	tmp, err := w.writeTemp(name, data)
+	if err != nil {
+		return false, err
+	}
+	if err := w.install(tmp, name); err != nil {
+		os.Remove(tmp)
+		return false, err
+	}
+	return true, nil
+}
 
+// writeTemp writes data to a new temporary file beside name, complete,
+// with FileMode and flushed to disk, and returns its path. Nothing is left
+// behind on error.
+func (w *Writer) writeTemp(name string, data []byte) (_ string, err error) {
 	create := w.createTemp
 	if create == nil {
 		create = func(dir, pattern string) (tempFile, error) { return os.CreateTemp(dir, pattern) }
 	}
 	f, err := create(w.Dir, w.tempPattern(name))
 	if err != nil {
-		return false, fmt.Errorf("publish: write %s: %w", name, err)
+		return "", fmt.Errorf("publish: write %s: %w", name, err)
 	}
 	tmp := f.Name()
 	closed := false
@@ -248,27 +275,41 @@ func (w *Writer) writeFile(name string, data []byte) (written bool, err error) {
 		err = io.ErrShortWrite
 	}
 	if err != nil {
-		return false, fmt.Errorf("publish: write %s: %w", name, err)
+		return "", fmt.Errorf("publish: write %s: %w", name, err)
 	}
 	if err = f.Chmod(FileMode); err != nil {
-		return false, fmt.Errorf("publish: write %s: %w", name, err)
+		return "", fmt.Errorf("publish: write %s: %w", name, err)
 	}
 	if err = f.Sync(); err != nil {
-		return false, fmt.Errorf("publish: write %s: %w", name, err)
+		return "", fmt.Errorf("publish: write %s: %w", name, err)
 	}
 	closed = true
 	if err = f.Close(); err != nil {
-		return false, fmt.Errorf("publish: write %s: %w", name, err)
+		return "", fmt.Errorf("publish: write %s: %w", name, err)
 	}
+	return tmp, nil
+}
+
+// install renames the temporary file tmp over name, refusing to replace
+// anything but a regular file.
+func (w *Writer) install(tmp, name string) error {
+	final := filepath.Join(w.Dir, name)
 	// Check again just before the rename: a directory or socket put there
 	// meanwhile must not be replaced either.
-	if _, err = sameRegularFile(final, nil); err != nil {
-		return false, err
+	if _, err := sameRegularFile(final, nil); err != nil {
+		return err
 	}
-	if err = os.Rename(tmp, final); err != nil {
-		return false, fmt.Errorf("publish: write %s: %w", name, err)
+	w.tell("rename " + name)
+	if err := os.Rename(tmp, final); err != nil {
+		return fmt.Errorf("publish: write %s: %w", name, err)
 	}
-	return true, nil
+	return nil
+}
+
+func (w *Writer) tell(what string) {
+	if w.step != nil {
+		w.step(what)
+	}
 }
 
 // sameRegularFile reports whether path is a regular file holding exactly
@@ -276,30 +317,38 @@ func (w *Writer) writeFile(name string, data []byte) (written bool, err error) {
 // directory, a socket, a symbolic link…) is refused with an error, since
 // renaming over it would silently replace what someone put there.
 func sameRegularFile(path string, data []byte) (bool, error) {
+	_, same, err := sameRegular(path, data)
+	return same, err
+}
+
+// sameRegular is sameRegularFile that also returns what Lstat said of the
+// file before its bytes were compared (nil when it does not exist), so a
+// later check can tell whether it has been replaced since.
+func sameRegular(path string, data []byte) (fs.FileInfo, bool, error) {
 	fi, err := os.Lstat(path)
 	if errors.Is(err, fs.ErrNotExist) {
-		return false, nil
+		return nil, false, nil
 	}
 	if err != nil {
-		return false, fmt.Errorf("publish: %w", err)
+		return nil, false, fmt.Errorf("publish: %w", err)
 	}
 	if !fi.Mode().IsRegular() {
-		return false, fmt.Errorf("publish: refusing to replace %s: not a regular file (%s)", path, describeMode(fi.Mode()))
+		return nil, false, fmt.Errorf("publish: refusing to replace %s: not a regular file (%s)", path, describeMode(fi.Mode()))
 	}
 	if data == nil || fi.Size() != int64(len(data)) {
-		return false, nil
+		return fi, false, nil
 	}
 	equal, err := fileEquals(path, data)
 	if err != nil || !equal {
-		return false, err
+		return fi, false, err
 	}
 	// Same bytes; make sure a web server can still read them.
 	if fi.Mode().Perm() != FileMode {
 		if err := os.Chmod(path, FileMode); err != nil {
-			return false, fmt.Errorf("publish: %w", err)
+			return nil, false, fmt.Errorf("publish: %w", err)
 		}
 	}
-	return true, nil
+	return fi, true, nil
 }
 
 // compareChunk is the read size of fileEquals: a changed feed (the usual
@@ -382,11 +431,13 @@ func phase(name string) int {
 
 // WriteBundle writes every file of b into Dir: the .ics files, then
 // feeds.json (or a shard manifest), then index.html, each phase made durable
-// before the next begins. It stops at the first error; every file it has not
-// reached keeps its previous content.
-func (w *Writer) WriteBundle(ctx context.Context, b *Bundle) (Stats, error) {
+// before the next begins, under the directory's lock. As in Publish, the
+// changed feeds are first written to temporary files and retracted from the
+// current feeds.json before they are renamed into place, so feeds.json never
+// lists bytes that are not on disk. It stops at the first error; every file
+// it has not reached keeps its previous content.
+func (w *Writer) WriteBundle(ctx context.Context, b *Bundle) (st Stats, err error) {
 	start := time.Now()
-	var st Stats
 	removed, err := w.prepare()
 	st.TempRemoved = removed
 	if err != nil {
@@ -403,49 +454,76 @@ func (w *Writer) WriteBundle(ctx context.Context, b *Bundle) (Stats, error) {
 		}
 		return files[i].Name < files[j].Name
 	})
-	indexFiles, indexWritten := 0, 0
-	for i, f := range files {
+	var staged []stagedFeed
+	defer func() {
+		for _, sf := range staged {
+			if sf.tmp != "" {
+				os.Remove(sf.tmp)
+			}
+		}
+	}()
+	changed := map[string]bool{}
+	for _, f := range files {
+		if phase(f.Name) != 0 {
+			continue
+		}
+		if err := checkName(f.Name); err != nil {
+			return st, err
+		}
 		if err := ctx.Err(); err != nil {
 			return st, fmt.Errorf("publish: %w", err)
 		}
-		written, err := w.writeFile(f.Name, f.Data)
+		sf, err := w.stageFile(Source{ID: strings.TrimSuffix(f.Name, ".ics")}, *f)
 		if err != nil {
 			return st, err
 		}
-		ics := phase(f.Name) == 0
-		if ics {
-			st.Feeds++
-			st.Bytes += int64(len(f.Data))
-		} else {
-			indexFiles++
+		staged = append(staged, sf)
+		st.Feeds++
+		st.Bytes += int64(len(f.Data))
+		if sf.tmp != "" {
+			changed[sf.src.ID] = true
 		}
-		switch {
-		case written && ics:
-			st.FeedsWritten++
-		case ics:
+	}
+	unlock, err := w.lockDir(ctx)
+	if err != nil {
+		return st, err
+	}
+	defer unlock()
+	if err := w.retractFeeds(changed); err != nil {
+		return st, err
+	}
+	for i, sf := range staged {
+		if sf.tmp == "" {
 			st.FeedsUnchanged++
-		case written:
-			indexWritten++
-		}
-		if written {
-			st.FilesWritten++
-		} else {
 			st.FilesUnchanged++
+			continue
 		}
-		if i+1 == len(files) || phase(files[i+1].Name) != phase(f.Name) {
-			if err := syncDir(w.Dir); err != nil {
-				return st, err
-			}
+		if err := w.install(sf.tmp, sf.name); err != nil {
+			return st, err
 		}
+		staged[i].tmp = ""
+		st.FeedsWritten++
+		st.FilesWritten++
+	}
+	if err := syncDir(w.Dir); err != nil {
+		return st, err
+	}
+	indexFiles := 0
+	st.Index = IndexUnchanged
+	for _, f := range files {
+		if phase(f.Name) == 0 {
+			continue
+		}
+		indexFiles++
+		if err := w.writeCounted(&st, *f, true); err != nil {
+			return st, err
+		}
+	}
+	if indexFiles == 0 {
+		st.Index = ""
 	}
 	for _, fi := range b.Feeds {
 		st.Events += fi.Events
-	}
-	switch {
-	case indexWritten > 0:
-		st.Index = IndexWritten
-	case indexFiles > 0:
-		st.Index = IndexUnchanged
 	}
 	st.Elapsed = time.Since(start)
 	return st, nil

@@ -1,0 +1,28 @@
+//go:build unix
+
+package publish
+
+import (
+	"errors"
+	"os"
+	"syscall"
+)
+
+// tryLock takes an exclusive flock(2) on f without blocking; false means
+// another open file description holds it.
+func tryLock(f *os.File) (bool, error) {
+	for {
+		err := syscall.Flock(int(f.Fd()), syscall.LOCK_EX|syscall.LOCK_NB)
+		switch {
+		case err == nil:
+			return true, nil
+		case errors.Is(err, syscall.EINTR):
+			continue
+		case errors.Is(err, syscall.EWOULDBLOCK):
+			return false, nil
+		}
+		return false, err
+	}
+}
+
+func unlockFile(f *os.File) { syscall.Flock(int(f.Fd()), syscall.LOCK_UN) }

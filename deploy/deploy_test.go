@@ -305,6 +305,14 @@ func TestDockerfile(t *testing.T) {
 			t.Errorf("Dockerfile lacks %q", want)
 		}
 	}
+	// The example that publishes into a host folder runs as the host user
+	// (the image's nonroot uid cannot write there) into a folder made first.
+	for _, want := range []string{`mkdir -p public`, `docker run --rm --user "$(id -u):$(id -g)" -v "$PWD/public:/srv/public" heliocal publish --out /srv/public`,
+		"ARG VERSION=\n", "-X main.version=${VERSION}"} {
+		if !strings.Contains(s, want) {
+			t.Errorf("Dockerfile lacks %q", want)
+		}
+	}
 	user := regexp.MustCompile(`(?m)^USER (\S+)`).FindStringSubmatch(s)
 	if user == nil || strings.HasPrefix(user[1], "root") || strings.HasPrefix(user[1], "0") {
 		t.Errorf("final stage runs as %v, want a non-root USER", user)

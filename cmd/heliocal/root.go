@@ -99,7 +99,9 @@ publishes them as iCalendar feeds that calendar apps subscribe to.
 Configuration: --config FILE, else ./heliocal.yaml, else the built-in demo.` + exitStatusHelp,
 		SilenceUsage:  true,
 		SilenceErrors: true,
+		Version:       currentVersion().String(),
 	}
+	root.SetVersionTemplate("{{.Version}}\n")
 	root.PersistentFlags().StringVarP(&g.configPath, "config", "c", "", "configuration file (YAML, TOML or JSON)")
 	root.SetFlagErrorFunc(func(_ *cobra.Command, err error) error { return inputError{err} })
 	root.CompletionOptions.DisableDefaultCmd = true

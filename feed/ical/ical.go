@@ -76,7 +76,7 @@ const MaxAdvisedSize = 1_000_000
 // Options tune the writer; the zero value is usable.
 type Options struct {
 	// Version is heliocal's version, written into PRODID as
-	// "-//heliocal//heliocal <Version>//EN"; empty writes "dev".
+	// "-//heliocal//heliocal <Version>//EN"; empty writes "unversioned".
 	Version string
 }
 
@@ -84,7 +84,7 @@ type Options struct {
 func (opts Options) ProductID() string {
 	v := opts.Version
 	if v == "" {
-		v = "dev"
+		v = "unversioned"
 	}
 	return "-//heliocal//heliocal " + v + "//EN"
 }

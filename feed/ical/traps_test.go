@@ -212,7 +212,7 @@ func TestTrapProductID(t *testing.T) {
 	if bytes.Contains(data, []byte("arran4")) || bytes.Contains(data, []byte("Golang ICS Library")) {
 		t.Error("library PRODID leaked")
 	}
-	if got := (Options{}).ProductID(); got != "-//heliocal//heliocal dev//EN" {
+	if got := (Options{}).ProductID(); got != "-//heliocal//heliocal unversioned//EN" {
 		t.Errorf("default ProductID %q", got)
 	}
 	// Control: NewCalendar stamps the library author's PRODID.

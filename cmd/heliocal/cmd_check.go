@@ -2,6 +2,8 @@ package main
 
 import (
 	"context"
+	"encoding/json"
+	"errors"
 	"fmt"
 	"strings"
 	"text/tabwriter"
@@ -14,79 +16,194 @@ import (
 )
 
 func newCheckCommand(g *globals) *cobra.Command {
-	return &cobra.Command{
+	var format string
+	cmd := &cobra.Command{
 		Use:   "check",
 		Short: "Validate the configuration and summarise its sites and feeds",
 		Long: `Validate the configuration (every problem is listed, each with its field and value) and,
 when it is valid, build every feed once and print the sites, the feeds, their event counts
 and sizes. A feed larger than service.max_feed_bytes gets a warning: some widely used web
-calendars are reported to drop events from subscriptions over about 1 MB.` + exitStatusHelp,
+calendars are reported to drop events from subscriptions over about 1 MB.
+
+--format json prints one JSON document on standard output for scripts: the sites and feeds
+of a valid configuration, or {"valid": false, "problems": [...]} with one object per
+problem (exit code 2).` + exitStatusHelp,
+		Example: `  heliocal check --config farm.yaml
+  heliocal check --config - < farm.toml
+  heliocal check --format json | jq '.feeds[] | select(.oversize) | .id'`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
-			return runCheck(cmd.Context(), g, time.Now())
+			switch format {
+			case "text", "json":
+			default:
+				return badInput("--format: %q: use text or json", format)
+			}
+			return runCheck(cmd.Context(), g, time.Now(), format)
 		},
 	}
+	cmd.Flags().StringVar(&format, "format", "text", "output: text (tables) or json (for scripts)")
+	return cmd
 }
 
-func runCheck(ctx context.Context, g *globals, now time.Time) error {
+// checkReport is what check finds, for --format json.
+type checkReport struct {
+	Configuration string         `json:"configuration"` // file name, "standard input" or "built-in demo"
+	Valid         bool           `json:"valid"`
+	Problems      []checkProblem `json:"problems,omitempty"`
+	Sites         []checkSite    `json:"sites"`
+	Feeds         []checkFeed    `json:"feeds"`
+	Warnings      []string       `json:"warnings"`
+}
+
+type checkProblem struct {
+	Field   string `json:"field"`
+	Value   string `json:"value"`
+	Message string `json:"message"`
+	Hint    string `json:"hint,omitempty"`
+}
+
+type checkSite struct {
+	ID               string  `json:"id"`
+	Name             string  `json:"name"`
+	Latitude         float64 `json:"latitude"`
+	Longitude        float64 `json:"longitude"`
+	Elevation        float64 `json:"elevation_m"`
+	TimeZone         string  `json:"timezone"`
+	TimeZoneInferred bool    `json:"timezone_inferred"`
+}
+
+type checkFeed struct {
+	ID        string   `json:"id"`
+	Site      string   `json:"site"`
+	Kinds     []string `json:"kinds"`
+	DaysBack  int      `json:"days_back"`
+	DaysAhead int      `json:"days_ahead"`
+	Events    int      `json:"events"`
+	Bytes     int      `json:"bytes"`
+	Oversize  bool     `json:"oversize"` // over service.max_feed_bytes
+}
+
+// writeCheckJSON prints a report, indented, on standard output.
+func writeCheckJSON(g *globals, r *checkReport) error {
+	b, err := json.MarshalIndent(r, "", "  ")
+	if err != nil {
+		return err
+	}
+	_, err = g.stdout.Write(append(b, '\n'))
+	return err
+}
+
+// checkProblems is the JSON report of an invalid configuration; the error
+// is returned unchanged for the exit code, without a second listing.
+func checkProblems(g *globals, src config.Source, err error) error {
+	var ve *config.ValidationError
+	r := &checkReport{Configuration: src.String(), Sites: []checkSite{}, Feeds: []checkFeed{}, Warnings: []string{}}
+	if errors.As(err, &ve) {
+		for _, p := range ve.Problems {
+			r.Problems = append(r.Problems, checkProblem{Field: p.Path, Value: p.Value, Message: p.Msg, Hint: p.Hint})
+		}
+	} else {
+		r.Problems = []checkProblem{{Message: err.Error()}}
+	}
+	if werr := writeCheckJSON(g, r); werr != nil {
+		return werr
+	}
+	return silentError{err}
+}
+
+func runCheck(ctx context.Context, g *globals, now time.Time, format string) error {
 	cfg, src, err := loadConfig(g)
 	if err != nil {
+		if format == "json" {
+			return checkProblems(g, src, err)
+		}
 		return err
 	}
-	srcs, _, err := build(cfg, now, newLayout(cfg.Service.BaseURL))
+	r, notes, err := checkConfig(ctx, cfg, src, now)
 	if err != nil {
 		return err
 	}
-	w := g.stdout
-	fmt.Fprintf(w, "configuration: %s (valid)\n\n", src)
-	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
-	fmt.Fprintln(tw, "SITE\tNAME\tLATITUDE\tLONGITUDE\tELEVATION\tZONE")
-	var inferred []string
+	if format == "json" {
+		return writeCheckJSON(g, r)
+	}
+	writeCheckText(g, r, notes)
+	return nil
+}
+
+// checkConfig builds every feed of a valid configuration once and reports
+// the sites and feeds, the warnings for oversize feeds, and notes for
+// sites whose zone comes from their coordinates.
+func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now time.Time) (*checkReport, []string, error) {
+	srcs, _, err := build(cfg, now, newLayout(cfg.Service.BaseURL))
+	if err != nil {
+		return nil, nil, err
+	}
+	r := &checkReport{Configuration: src.String(), Valid: true, Sites: []checkSite{}, Feeds: []checkFeed{}, Warnings: []string{}}
+	var notes []string
 	for _, s := range cfg.Sites {
-		zone := s.TimeZone.Name()
+		r.Sites = append(r.Sites, checkSite{ID: s.ID, Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude,
+			Elevation: s.Elevation, TimeZone: s.TimeZone.Name(), TimeZoneInferred: s.ZoneInferred})
 		if s.ZoneInferred {
-			zone += " (from the coordinates)"
-			inferred = append(inferred, fmt.Sprintf("note: site %s has no timezone: using %s, the zone in force at %.4f, %.4f; add timezone: to choose another",
+			notes = append(notes, fmt.Sprintf("note: site %s has no timezone: using %s, the zone in force at %.4f, %.4f; add timezone: to choose another",
 				s.ID, config.DescribeZone(s.TimeZone.Location, now), s.Latitude, s.Longitude))
 		}
-		fmt.Fprintf(tw, "%s\t%s\t%.4f\t%.4f\t%g m\t%s\n", s.ID, s.Name, s.Latitude, s.Longitude, s.Elevation, zone)
 	}
-	tw.Flush()
-	for _, line := range inferred {
-		fmt.Fprintln(w, line)
-	}
-	fmt.Fprintln(w)
 	limit := cfg.Service.MaxFeedBytes
-	var warnings []string
-	tw = tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
-	fmt.Fprintln(tw, "FEED\tSITE\tKINDS\tWINDOW\tEVENTS\tSIZE")
 	for i, s := range srcs {
 		if err := ctx.Err(); err != nil {
-			return err
+			return nil, nil, err
 		}
 		f := cfg.Feeds[i]
 		cal, err := s.Build(ctx)
 		if err != nil {
-			return err
+			return nil, nil, err
 		}
 		data, err := ical.Marshal(cal, ical.Options{Version: versionString()})
 		if err != nil {
-			return fmt.Errorf("feed %q: %w", f.ID, err)
+			return nil, nil, fmt.Errorf("feed %q: %w", f.ID, err)
 		}
 		kinds := make([]string, len(f.Kinds))
 		for j, k := range f.Kinds {
 			kinds[j] = k.Kind.String()
 		}
-		fmt.Fprintf(tw, "%s\t%s\t%s\t-%d/+%d d\t%d\t%s\n", f.ID, f.Site, strings.Join(kinds, ","), f.DaysBack, f.DaysAhead, len(cal.Entries), size(len(data)))
-		if limit > 0 && len(data) > limit {
-			warnings = append(warnings, fmt.Sprintf("warning: feed %q is %s, over service.max_feed_bytes (%s): some web calendars drop events from subscriptions this large; shorten days_back/days_ahead or split the kinds into several feeds", f.ID, size(len(data)), size(limit)))
+		over := limit > 0 && len(data) > limit
+		r.Feeds = append(r.Feeds, checkFeed{ID: f.ID, Site: f.Site, Kinds: kinds, DaysBack: f.DaysBack, DaysAhead: f.DaysAhead,
+			Events: len(cal.Entries), Bytes: len(data), Oversize: over})
+		if over {
+			r.Warnings = append(r.Warnings, fmt.Sprintf("feed %q is %s, over service.max_feed_bytes (%s): some web calendars drop events from subscriptions this large; shorten days_back/days_ahead or split the kinds into several feeds", f.ID, size(len(data)), size(limit)))
 		}
 	}
-	tw.Flush()
-	for _, wmsg := range warnings {
-		fmt.Fprintln(g.stderr, wmsg)
+	return r, notes, nil
+}
+
+// writeCheckText prints the report as two tables on standard output, the
+// warnings on standard error.
+func writeCheckText(g *globals, r *checkReport, notes []string) {
+	w := g.stdout
+	fmt.Fprintf(w, "configuration: %s (valid)\n\n", r.Configuration)
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	fmt.Fprintln(tw, "SITE\tNAME\tLATITUDE\tLONGITUDE\tELEVATION\tZONE")
+	for _, s := range r.Sites {
+		zone := s.TimeZone
+		if s.TimeZoneInferred {
+			zone += " (from the coordinates)"
+		}
+		fmt.Fprintf(tw, "%s\t%s\t%.4f\t%.4f\t%g m\t%s\n", s.ID, s.Name, s.Latitude, s.Longitude, s.Elevation, zone)
 	}
-	return nil
+	tw.Flush()
+	for _, line := range notes {
+		fmt.Fprintln(w, line)
+	}
+	fmt.Fprintln(w)
+	tw = tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	fmt.Fprintln(tw, "FEED\tSITE\tKINDS\tWINDOW\tEVENTS\tSIZE")
+	for _, f := range r.Feeds {
+		fmt.Fprintf(tw, "%s\t%s\t%s\t-%d/+%d d\t%d\t%s\n", f.ID, f.Site, strings.Join(f.Kinds, ","), f.DaysBack, f.DaysAhead, f.Events, size(f.Bytes))
+	}
+	tw.Flush()
+	for _, wmsg := range r.Warnings {
+		fmt.Fprintln(g.stderr, "warning: "+wmsg)
+	}
 }
 
 func size(n int) string {

@@ -120,6 +120,10 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 			case <-ctx.Done():
 				return
 			case <-hup:
+				if g.configPath == stdinPath {
+					log.Error("reload refused: the configuration was read from standard input, which cannot be read again; still serving the old feeds (restart heliocal to change them)")
+					continue
+				}
 				next, src, err := loadConfig(g)
 				if err != nil {
 					log.Error("reload refused: the new configuration is invalid; still serving the old feeds", "err", err)

@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"os"
 	"slices"
 	"strings"
 
@@ -27,6 +28,14 @@ type inputError struct{ err error }
 func (e inputError) Error() string { return e.err.Error() }
 func (e inputError) Unwrap() error { return e.err }
 
+// silentError carries an error whose report has already been written (as
+// JSON on standard output): run sets the exit code from it without
+// printing it again.
+type silentError struct{ err error }
+
+func (e silentError) Error() string { return e.err.Error() }
+func (e silentError) Unwrap() error { return e.err }
+
 func badInput(format string, args ...any) error {
 	return inputError{fmt.Errorf(format, args...)}
 }
@@ -46,6 +55,7 @@ func checkBaseURLFlag(v string) error {
 // globals are the settings every command shares.
 type globals struct {
 	configPath string
+	stdin      io.Reader // read by --config -
 	stdout     io.Writer
 	stderr     io.Writer
 	getenv     func(string) (string, bool)
@@ -58,9 +68,15 @@ EXIT STATUS
   1  the command failed while running (e.g. a file could not be written)
   2  bad input: unknown flag, invalid configuration, date out of range`
 
-// run executes the command line and returns the process exit code.
+// run executes the command line and returns the process exit code; the
+// configuration may come from standard input (--config -).
 func run(ctx context.Context, args []string, stdout, stderr io.Writer, getenv func(string) (string, bool)) int {
-	g := &globals{stdout: stdout, stderr: stderr, getenv: getenv}
+	return runWithInput(ctx, args, os.Stdin, stdout, stderr, getenv)
+}
+
+// runWithInput is run with the standard input given.
+func runWithInput(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.Writer, getenv func(string) (string, bool)) int {
+	g := &globals{stdin: stdin, stdout: stdout, stderr: stderr, getenv: getenv}
 	root := newRootCommand(g)
 	root.SetArgs(args)
 	root.SetOut(stdout)
@@ -72,7 +88,9 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer, getenv fu
 	if strings.HasPrefix(err.Error(), "unknown command ") {
 		err = inputError{err} // cobra's own error for an unknown command or a stray argument
 	}
-	fmt.Fprintln(stderr, "heliocal:", err)
+	if !errors.As(err, new(silentError)) {
+		fmt.Fprintln(stderr, "heliocal:", err)
+	}
 	return exitCode(err)
 }
 
@@ -102,7 +120,7 @@ Configuration: --config FILE, else ./heliocal.yaml, else the built-in demo.` + e
 		Version:       currentVersion().String(),
 	}
 	root.SetVersionTemplate("{{.Version}}\n")
-	root.PersistentFlags().StringVarP(&g.configPath, "config", "c", "", "configuration file (YAML, TOML or JSON)")
+	root.PersistentFlags().StringVarP(&g.configPath, "config", "c", "", "configuration file (YAML, TOML or JSON); - reads it from standard input")
 	root.SetFlagErrorFunc(func(_ *cobra.Command, err error) error { return inputError{err} })
 	root.CompletionOptions.DisableDefaultCmd = true
 	root.AddCommand(

@@ -1,0 +1,131 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+func runStdin(t *testing.T, stdin string, args ...string) (int, string, string) {
+	t.Helper()
+	var out, errOut bytes.Buffer
+	code := runWithInput(context.Background(), args, strings.NewReader(stdin), &out, &errOut, noEnv)
+	return code, out.String(), errOut.String()
+}
+
+func readConfig(t *testing.T, name string) string {
+	t.Helper()
+	b, err := os.ReadFile(filepath.Join("..", "..", "testdata", "config", name))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return string(b)
+}
+
+// --config - reads the configuration from standard input, in any of the
+// three formats, told apart by their text.
+func TestConfigFromStdin(t *testing.T) {
+	for _, name := range []string{"parity.yaml", "parity.toml", "parity.json", "good-minimal.yaml"} {
+		t.Run(name, func(t *testing.T) {
+			code, out, errOut := runStdin(t, readConfig(t, name), "check", "--config", "-")
+			if code != 0 {
+				t.Fatalf("exit %d: %s", code, errOut)
+			}
+			if !strings.Contains(out, "configuration: standard input (valid)") || !strings.Contains(out, "north-field") {
+				t.Errorf("output:\n%s", out)
+			}
+		})
+	}
+	// Problems name standard input where a file name would be.
+	code, _, errOut := runStdin(t, readConfig(t, "bad-latitude.yaml"), "check", "-c", "-")
+	if code != exitInput || !strings.Contains(errOut, "standard input: sites[0].latitude: 95: must be within -90..90") {
+		t.Errorf("exit %d, stderr:\n%s", code, errOut)
+	}
+	code, _, errOut = runStdin(t, "  \n", "events", "--config", "-", "--site", "x")
+	if code != exitInput || !strings.Contains(errOut, "standard input is empty") {
+		t.Errorf("empty input: exit %d, stderr: %s", code, errOut)
+	}
+}
+
+func TestSniffFormat(t *testing.T) {
+	for text, want := range map[string]string{
+		"{\"sites\": []}":                      "json",
+		"\ufeff# comment\n\n  {":               "json",
+		"[service]\nlisten = \":8080\"":        "toml",
+		"# sites\n[[sites]]\nid = \"a\"":       "toml",
+		"title = \"x\"":                        "toml",
+		"sites:\n  - id: a":                    "yaml",
+		"---\nsites: []":                       "yaml",
+		"service: {listen: \":8080\"}":         "yaml",
+		"- just a list":                        "yaml",
+		"":                                     "yaml",
+		"feeds: [{id: \"a = b\", kinds: [x]}]": "yaml",
+	} {
+		if got := sniffFormat([]byte(text)); got != want {
+			t.Errorf("sniffFormat(%q) = %s, want %s", text, got, want)
+		}
+	}
+}
+
+// check --format json: one document a script can read, for a valid and for
+// an invalid configuration (then exit 2, and nothing on stderr).
+func TestCheckJSON(t *testing.T) {
+	code, out, errOut := runCLI(t, "check", "--format", "json")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	var r checkReport
+	if err := json.Unmarshal([]byte(out), &r); err != nil {
+		t.Fatalf("%v\n%s", err, out)
+	}
+	if !r.Valid || r.Configuration != "built-in demo" || len(r.Sites) != 4 || len(r.Feeds) == 0 || r.Problems != nil {
+		t.Fatalf("report %+v", r)
+	}
+	for _, f := range r.Feeds {
+		if f.ID == "" || f.Site == "" || len(f.Kinds) == 0 || f.Events <= 0 || f.Bytes <= 0 {
+			t.Errorf("incomplete feed %+v", f)
+		}
+	}
+	// The same figures as the text form.
+	_, text, _ := runCLI(t, "check")
+	for _, f := range r.Feeds {
+		if !strings.Contains(text, f.ID) || !strings.Contains(text, " "+size(f.Bytes)) {
+			t.Errorf("feed %s (%s) not in the text form", f.ID, size(f.Bytes))
+		}
+	}
+
+	code, out, errOut = runStdin(t, readConfig(t, "every-problem.yaml"), "check", "--config", "-", "--format", "json")
+	if code != exitInput || errOut != "" {
+		t.Fatalf("invalid configuration: exit %d, stderr %q", code, errOut)
+	}
+	var bad struct {
+		Valid    *bool
+		Problems []checkProblem
+	}
+	if err := json.Unmarshal([]byte(out), &bad); err != nil {
+		t.Fatalf("%v\n%s", err, out)
+	}
+	if bad.Valid == nil || *bad.Valid || len(bad.Problems) < 3 {
+		t.Fatalf("report %s", out)
+	}
+	found := false
+	for _, p := range bad.Problems {
+		if p.Field == "" || p.Message == "" {
+			t.Errorf("problem without field or message: %+v", p)
+		}
+		if p.Field == "sites[0].latitude" && p.Value == "95" && strings.Contains(p.Message, "-90..90") {
+			found = true
+		}
+	}
+	if !found {
+		t.Errorf("no problem for sites[0].latitude = 95 in %s", out)
+	}
+
+	if code, _, errOut := runCLI(t, "check", "--format", "yaml"); code != exitInput || !strings.Contains(errOut, `--format: "yaml"`) {
+		t.Errorf("--format yaml: exit %d, %s", code, errOut)
+	}
+}

@@ -239,6 +239,8 @@ func describeMoonNote(s *siteInfo, n Note) (string, string) {
 		default:
 			title = fmt.Sprintf("No moon%s today", verb)
 		}
+	case "moon-transit":
+		title = "No Moon transit today: the Moon crosses the meridian about 50 minutes later each day"
 	case "dark-window":
 		if n.State == astro.AlwaysAbove {
 			title = "No dark sky tonight: the Sun stays less than 18° below the horizon"

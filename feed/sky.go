@@ -70,6 +70,32 @@ type Sky struct {
 	moonOnce sync.Once
 	moon     *astro.MoonEphemeris
 	moonErr  error
+
+	years sync.Map // yearKey → yearValue: seasons, cross-quarters, apsides
+}
+
+// yearKey names one year's result of a yearly computation.
+type yearKey struct {
+	what string
+	year int
+}
+
+type yearValue struct {
+	v   any
+	err error
+}
+
+// yearly returns f(year), computed once per Sky: every feed and site of a
+// build shares the year's seasons, cross-quarter days and apsides.
+func yearly[T any](s *Sky, what string, year int, f func(int) (T, error)) (T, error) {
+	k := yearKey{what, year}
+	if v, ok := s.years.Load(k); ok {
+		yv := v.(yearValue)
+		return yv.v.(T), yv.err
+	}
+	v, err := f(year)
+	s.years.Store(k, yearValue{v, err})
+	return v, err
 }
 
 // NewSky prepares the shared ephemeris for events on local dates first..last
@@ -163,6 +189,38 @@ func (c *collector) add(k config.Kind) error {
 	if err := c.ctx.Err(); err != nil {
 		return err
 	}
+	n0, m0 := len(c.events), len(c.notes)
+	if err := c.compute(k); err != nil {
+		return err
+	}
+	if !k.IsYearly() && k.Name != "photoperiod" && k.Name != "daily-summary" {
+		c.noteSilent(k, n0, m0)
+	}
+	return nil
+}
+
+// noteSilent gives each date of a daily kind without an event or a note a
+// note of state Crosses: the date has none because the event passed to the
+// neighbouring dates (an astronomical dusk that slid past midnight, a Moon
+// transit 50 minutes later each day, a golden hour running on from the
+// evening before). Dates are never silent.
+func (c *collector) noteSilent(k config.Kind, n0, m0 int) {
+	has := make(map[time.Time]bool, len(c.events)-n0+len(c.notes)-m0)
+	for _, e := range c.events[n0:] {
+		has[e.Date] = true
+	}
+	for _, n := range c.notes[m0:] {
+		has[n.Date] = true
+	}
+	for d := c.first; !d.After(c.last); d = d.AddDate(0, 0, 1) {
+		if !has[d] {
+			c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.Crosses, Family: "no-event:" + k.String()})
+		}
+	}
+}
+
+// compute adds the events and notes of one kind.
+func (c *collector) compute(k config.Kind) error {
 	switch k.Name {
 	case "sunrise":
 		return c.crossings(k, c.p.Observer.RiseSetAltitude(), astro.Rising, "sun-horizon")
@@ -541,14 +599,14 @@ var seasonIndex = map[string]int{"march-equinox": 0, "june-solstice": 1, "septem
 func (c *collector) seasons(k config.Kind) error {
 	var all []time.Time
 	for _, y := range c.years() {
-		s, err := astro.Seasons(y)
+		s, err := yearly(c.sky, "seasons", y, astro.Seasons)
 		if err != nil {
 			return err
 		}
 		all = append(all, s[:]...)
 	}
 	// the season after the last listed one, for the length of that season
-	next, err := astro.Seasons(c.last.Year() + 2)
+	next, err := yearly(c.sky, "seasons", c.last.Year()+2, astro.Seasons)
 	if err != nil {
 		return err
 	}
@@ -575,7 +633,7 @@ var seasonNames = [4]string{"march-equinox", "june-solstice", "september-equinox
 
 func (c *collector) crossQuarters(k config.Kind) error {
 	for _, y := range c.years() {
-		q, err := astro.CrossQuarters(y)
+		q, err := yearly(c.sky, "cross-quarters", y, astro.CrossQuarters)
 		if err != nil {
 			return err
 		}
@@ -598,11 +656,19 @@ func (c *collector) apsides(k config.Kind) error {
 	if k.Name == "aphelion" {
 		f = astro.Aphelion
 	}
+	type apsis struct {
+		t time.Time
+		r float64
+	}
 	for _, y := range c.years() {
-		t, r, err := f(y)
+		a, err := yearly(c.sky, k.Name, y, func(y int) (apsis, error) {
+			t, r, err := f(y)
+			return apsis{t, r}, err
+		})
 		if err != nil {
 			return err
 		}
+		t, r := a.t, a.r
 		d := localDate(t, c.p.Location)
 		if c.inRange(d) {
 			c.events = append(c.events, Event{Kind: k, Start: t, Date: d, Distance: r})

@@ -353,6 +353,10 @@ func thousands(x float64) string {
 func describeNote(s *siteInfo, n Note) (string, string) {
 	above := n.State == astro.AlwaysAbove
 	var title, desc string
+	if n.State == astro.Crosses && !n.Kind.IsMoon() {
+		title, desc = noEventToday(n.Kind)
+		return title, fmt.Sprintf("%s at %s on %s.", desc, s.where, n.Date.Format("Monday 2 January 2006"))
+	}
 	switch n.Family {
 	case "sun-horizon":
 		if above {
@@ -391,6 +395,24 @@ func describeNote(s *siteInfo, n Note) (string, string) {
 		}
 	}
 	return title, fmt.Sprintf("%s at %s on %s.", desc, s.where, n.Date.Format("Monday 2 January 2006"))
+}
+
+// noEventToday gives the title and the explanation of a date on which a
+// Sun kind has no event although the Sun crosses its threshold on the dates
+// around it.
+func noEventToday(k config.Kind) (string, string) {
+	name := strings.ToLower(plainNames[k.Name])
+	switch k.Name {
+	case "solar-noon":
+		return "No solar noon today", "No solar noon on this date: the Sun crosses the meridian just before the date begins and just after it ends"
+	case "golden-hour", "blue-hour":
+		return fmt.Sprintf("No %s begins today", name),
+			fmt.Sprintf("No %s begins on this date: the one that began the day before runs into it", name)
+	case "sun-altitude":
+		name = "crossing of " + degrees(k.Altitude)
+	}
+	return fmt.Sprintf("No %s today", name),
+		fmt.Sprintf("No %s on this date: around this time of year it comes close to midnight and moves from one date to the next", name)
 }
 
 // describeSummary gives the daily summary: sunrise, sunset, day length and

@@ -193,10 +193,18 @@ func (c *collector) add(k config.Kind) error {
 	if err := c.compute(k); err != nil {
 		return err
 	}
-	if !k.IsYearly() && k.Name != "photoperiod" && k.Name != "daily-summary" {
+	if everyDate[k.Name] {
 		c.noteSilent(k, n0, m0)
 	}
 	return nil
+}
+
+// everyDate are the kinds with an event or a note on every local date.
+var everyDate = map[string]bool{
+	"sunrise": true, "sunset": true, "solar-noon": true, "civil-dawn": true, "civil-dusk": true,
+	"nautical-dawn": true, "nautical-dusk": true, "astronomical-dawn": true, "astronomical-dusk": true,
+	"golden-hour": true, "blue-hour": true, "sun-altitude": true,
+	"moonrise": true, "moonset": true, "moon-transit": true, "dark-window": true,
 }
 
 // noteSilent gives each date of a daily kind without an event or a note a

@@ -53,6 +53,9 @@ func NewCatalogue(cfg *config.Config, opts Options) (*Catalogue, error) {
 			return nil, fmt.Errorf("feeds[%d].site: %q: no site has this id", i, f.Site)
 		}
 		a, b := c.window(f, s)
+		if len(f.Plans) > 0 {
+			a, b = a.AddDate(0, 0, -PlanMargin), b.AddDate(0, 0, PlanMargin)
+		}
 		if first.IsZero() || a.Before(first) {
 			first = a
 		}
@@ -127,6 +130,13 @@ func (sky *Sky) Calendar(ctx context.Context, s *config.Site, f *config.Feed, fi
 	entries, err := sky.Entries(ctx, s, f.ID, f.Kinds, first, last)
 	if err != nil {
 		return nil, fmt.Errorf("feed %q: %w", f.ID, err)
+	}
+	if len(f.Plans) > 0 {
+		pe, err := sky.PlanEntries(ctx, s, f.ID, f.Plans, first, last)
+		if err != nil {
+			return nil, fmt.Errorf("feed %q: %w", f.ID, err)
+		}
+		entries = MergeEntries(entries, pe)
 	}
 	cal.Entries = entries
 	return cal, nil

@@ -76,6 +76,7 @@ type checkFeed struct {
 	ID        string   `json:"id"`
 	Site      string   `json:"site"`
 	Kinds     []string `json:"kinds"`
+	Plans     int      `json:"plans"`
 	DaysBack  int      `json:"days_back"`
 	DaysAhead int      `json:"days_ahead"`
 	Events    int      `json:"events"`
@@ -167,7 +168,7 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 			kinds[j] = k.Kind.String()
 		}
 		over := limit > 0 && len(data) > limit
-		r.Feeds = append(r.Feeds, checkFeed{ID: f.ID, Site: f.Site, Kinds: kinds, DaysBack: f.DaysBack, DaysAhead: f.DaysAhead,
+		r.Feeds = append(r.Feeds, checkFeed{ID: f.ID, Site: f.Site, Kinds: kinds, Plans: len(f.Plans), DaysBack: f.DaysBack, DaysAhead: f.DaysAhead,
 			Events: len(cal.Entries), Bytes: len(data), Oversize: over})
 		if over {
 			r.Warnings = append(r.Warnings, fmt.Sprintf("feed %q is %s, over service.max_feed_bytes (%s): some web calendars drop events from subscriptions this large; shorten days_back/days_ahead or split the kinds into several feeds", f.ID, size(len(data)), size(limit)))
@@ -198,7 +199,15 @@ func writeCheckText(g *globals, r *checkReport, notes []string) {
 	tw = tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	fmt.Fprintln(tw, "FEED\tSITE\tKINDS\tWINDOW\tEVENTS\tSIZE")
 	for _, f := range r.Feeds {
-		fmt.Fprintf(tw, "%s\t%s\t%s\t-%d/+%d d\t%d\t%s\n", f.ID, f.Site, strings.Join(f.Kinds, ","), f.DaysBack, f.DaysAhead, f.Events, size(f.Bytes))
+		kinds := f.Kinds
+		switch f.Plans {
+		case 0:
+		case 1:
+			kinds = append(kinds[:len(kinds):len(kinds)], "1 plan")
+		default:
+			kinds = append(kinds[:len(kinds):len(kinds)], fmt.Sprintf("%d plans", f.Plans))
+		}
+		fmt.Fprintf(tw, "%s\t%s\t%s\t-%d/+%d d\t%d\t%s\n", f.ID, f.Site, strings.Join(kinds, ","), f.DaysBack, f.DaysAhead, f.Events, size(f.Bytes))
 	}
 	tw.Flush()
 	for _, wmsg := range r.Warnings {

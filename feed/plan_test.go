@@ -1,0 +1,194 @@
+package feed
+
+import (
+	"context"
+	"strings"
+	"testing"
+	"time"
+
+	"heliocal/config"
+)
+
+func planEntries(t *testing.T, s *config.Site, first, last string, plans ...config.Plan) []Entry {
+	t.Helper()
+	sk, err := NewSky(date(first).AddDate(0, 0, -PlanMargin), date(last).AddDate(0, 0, PlanMargin))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i := range plans {
+		cfg := &config.Config{Sites: []config.Site{*s}, Feeds: []config.Feed{{ID: "f", Site: s.ID, Plans: plans[i : i+1]}}}
+		cfg.ApplyDefaults()
+		if err := cfg.Validate(); err != nil {
+			t.Fatalf("plan %d: %v", i, err)
+		}
+	}
+	es, err := sk.PlanEntries(context.Background(), s, "f", plans, date(first), date(last))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return es
+}
+
+func dates(es []Entry) string {
+	var out []string
+	for _, e := range es {
+		out = append(out, e.Date.Format(time.DateOnly))
+	}
+	return strings.Join(out, " ")
+}
+
+// TestWeekdayRules checks "<weekday> nearest|before|after new-moon" around
+// month and year ends and a clock change. New moons from the USNO
+// moon-phase data (testdata/reference/moon-phases.csv): 2024-03-10 09:00 UT
+// (mp-0073), 2024-11-01 12:47 UT (mp-0105), 2024-12-30 22:27 UT (mp-0113);
+// the local date is the zone's; weekdays from the Gregorian calendar
+// (1 November 2024 was a Friday, 30 December 2024 a Monday).
+func TestWeekdayRules(t *testing.T) {
+	ny := site(t, "ny", 40.71, -74.0, "America/New_York")
+	akl := site(t, "akl", -36.85, 174.76, "Pacific/Auckland")
+	tests := []struct {
+		s           *config.Site
+		rule        string
+		first, last string
+		want        string
+	}{
+		// 2024-12-30 17:27 EST, a Monday: Friday 27th is 3 days back, 3 January 4 ahead
+		{ny, "friday nearest new-moon", "2024-12-20", "2025-01-10", "2024-12-27"},
+		// 2024-12-31 11:27 NZDT, a Tuesday: Friday 3 January is 3 days ahead
+		{akl, "friday nearest new-moon", "2024-12-20", "2025-01-10", "2025-01-03"},
+		{ny, "saturday after new-moon", "2024-12-20", "2025-01-10", "2025-01-04"},
+		{ny, "monday after new-moon", "2024-12-20", "2025-01-10", "2025-01-06"}, // strictly after: not the 30th
+		{ny, "monday before new-moon", "2024-12-20", "2025-01-10", "2024-12-23"},
+		{ny, "monday nearest new-moon", "2024-12-20", "2025-01-10", "2024-12-30"}, // the date itself
+		// 2024-11-01 08:47 EDT, a Friday: Tuesday 29 October is 3 days back
+		{ny, "tuesday nearest new-moon", "2024-10-20", "2024-11-10", "2024-10-29"},
+		// Sunday 3 November 2024: clocks go back in New York
+		{ny, "sunday after new-moon", "2024-10-20", "2024-11-10", "2024-11-03"},
+		// 2024-03-10 05:00 EDT, the Sunday clocks go forward
+		{ny, "sunday nearest new-moon", "2024-03-01", "2024-03-20", "2024-03-10"},
+		{ny, "saturday nearest new-moon", "2024-03-01", "2024-03-20", "2024-03-09"},
+		// window edges: the new moon of 30 December lies outside a January window
+		{ny, "saturday after new-moon", "2025-01-01", "2025-01-10", "2025-01-04"},
+		{ny, "friday nearest new-moon", "2024-12-28", "2025-01-10", ""},
+	}
+	for _, tc := range tests {
+		es := planEntries(t, tc.s, tc.first, tc.last, config.Plan{Title: "Night", Date: tc.rule})
+		if got := dates(es); got != tc.want {
+			t.Errorf("%s, %s %s..%s: dates %q, want %q", tc.s.ID, tc.rule, tc.first, tc.last, got, tc.want)
+		}
+	}
+	// The clock change: 20:00 local on Sunday 3 November 2024 is 01:00 UT
+	// on the 4th (EST, UTC−5); 20:00 on Sunday 27 October is 00:00 UT (EDT).
+	es := planEntries(t, ny, "2024-10-20", "2024-11-10",
+		config.Plan{Title: "Night", Date: "sunday after new-moon", Start: "20:00", For: config.Duration(2 * time.Hour)})
+	if len(es) != 1 || !es[0].Start.Equal(time.Date(2024, 11, 4, 1, 0, 0, 0, time.UTC)) || es[0].End.Sub(es[0].Start) != 2*time.Hour {
+		t.Errorf("plan on the clock change: %+v", es)
+	}
+}
+
+// TestPlanDates checks the other date rules over a year: every day,
+// every <weekday>, every MM-DD (29 February only in leap years), one date,
+// and each date of an event kind.
+func TestPlanDates(t *testing.T) {
+	s := site(t, "vienna", 48.2, 16.4, "Europe/Vienna")
+	count := func(rule, first, last string) int {
+		return len(planEntries(t, s, first, last, config.Plan{Title: "x", Date: rule}))
+	}
+	// Gregorian calendar: 2024 has 366 days and 52 Fridays; 2028 is a leap year
+	for _, tc := range []struct {
+		rule, first, last string
+		want              int
+	}{
+		{"every day", "2024-01-01", "2024-12-31", 366},
+		{"every friday", "2024-01-01", "2024-12-31", 52},
+		{"every 04-25", "2024-01-01", "2026-12-31", 3},
+		{"every 02-29", "2025-01-01", "2028-12-31", 1},
+		{"2025-06-12", "2025-01-01", "2025-12-31", 1},
+		{"2025-06-12", "2025-06-13", "2025-12-31", 0},
+		// USNO seasons: one June solstice a year
+		{"june-solstice", "2024-01-01", "2025-12-31", 2},
+	} {
+		if got := count(tc.rule, tc.first, tc.last); got != tc.want {
+			t.Errorf("%q %s..%s: %d dates, want %d", tc.rule, tc.first, tc.last, got, tc.want)
+		}
+	}
+	// USNO moon phases 2024: full moons on 25 Jan 17:54 UT (mp-0067) and
+	// 23 May 13:53 UT (mp-0083), local dates in Vienna the same.
+	es := planEntries(t, s, "2024-01-01", "2024-06-30", config.Plan{Title: "Walk", Date: "full-moon"})
+	got := dates(es)
+	for _, d := range []string{"2024-01-25", "2024-05-23"} {
+		if !strings.Contains(got, d) {
+			t.Errorf("full-moon dates %s lack %s", got, d)
+		}
+	}
+	if len(es) != 6 {
+		t.Errorf("%d full-moon dates in the first half of 2024, want 6", len(es))
+	}
+}
+
+// TestPlanSouthern checks a plan at a southern site against the USNO table
+// for 42°27′ S, 76°30′ E (UTC+4, rows of testdata/reference/sun-times.csv):
+// "sunset+30m" for 2 h, and an end written before the start that falls on
+// the next day. Tolerance 75 s (the table's minute rounding).
+func TestPlanSouthern(t *testing.T) {
+	zone := time.FixedZone("UTC+04:00", 4*3600)
+	s := &config.Site{ID: "south", Name: "South", Latitude: -42.45, Longitude: 76.5, TimeZone: config.Zone{Location: zone}}
+	checked := 0
+	for _, day := range usnoDays(t, "Open-ocean point 42 27 S", zone) {
+		set, ok := day.times["sunset"]
+		if !ok {
+			continue
+		}
+		es := planEntries(t, s, day.date, day.date,
+			config.Plan{Title: "Sundowner", Date: "every day", Start: "sunset+30m", For: config.Duration(2 * time.Hour), Months: []string{"jan", "feb", "mar", "apr", "may", "jun", "jul", "aug", "sep", "oct", "nov", "dec"}},
+			config.Plan{Title: "Late watch", Date: "every day", Start: "23:00", End: "01:30"})
+		if len(es) != 2 {
+			t.Fatalf("%s: %d entries", day.date, len(es))
+		}
+		sun, watch := es[0], es[1]
+		if sun.Title != "Sundowner" || !near(sun.Start, set.Add(30*time.Minute), 75*time.Second) || sun.End.Sub(sun.Start) != 2*time.Hour {
+			t.Errorf("%s (%v): %q %s, want sunset %s + 30 min", day.date, day.ids, sun.Title, sun.Start.In(zone), set.Format("15:04"))
+		}
+		if watch.End.Sub(watch.Start) != 150*time.Minute || !watch.Facts.NextDay || !strings.Contains(watch.Description, "the next day") {
+			t.Errorf("%s: late watch %s–%s, next day %v", day.date, watch.Start.In(zone), watch.End.In(zone), watch.Facts.NextDay)
+		}
+		checked++
+	}
+	if checked < 4 {
+		t.Fatalf("%d dates checked", checked)
+	}
+}
+
+// TestPlanPolar checks plans at 80° N, 0° (USNO table, UT, 2015): on
+// 21 December (polar night, row sun-0182) and 14 April (no sunset, row
+// sun-0169) a plan starting at sunset gets an all-day note instead of a
+// time; on 21 October the sunset at 12:24 (row sun-0180) starts it.
+func TestPlanPolar(t *testing.T) {
+	s := site(t, "lat80", 80, 0, "UTC")
+	for _, d := range []string{"2015-12-21", "2015-04-14"} {
+		es := planEntries(t, s, d, d, config.Plan{Title: "Evening round", Date: "every day", Start: "sunset", End: "23:00"})
+		if len(es) != 1 || !es[0].AllDay || es[0].Facts.Missing != "sunset" || !strings.Contains(es[0].Title, "no sunset today") {
+			t.Errorf("%s: %+v, want an all-day note", d, es)
+		}
+	}
+	es := planEntries(t, s, "2015-10-21", "2015-10-21", config.Plan{Title: "Evening round", Date: "every day", Start: "sunset", End: "23:00"})
+	if len(es) != 1 || es[0].AllDay || !near(es[0].Start, time.Date(2015, 10, 21, 12, 24, 0, 0, time.UTC), 75*time.Second) {
+		t.Errorf("21 October: %+v", es)
+	}
+}
+
+// TestPlanUIDsStable: the same plan computed over two windows that share
+// dates gives the shared dates the same UIDs, and an all-day plan has a
+// date and no time.
+func TestPlanUIDsStable(t *testing.T) {
+	s := site(t, "vienna", 48.2, 16.4, "Europe/Vienna")
+	p := config.Plan{Title: "Frost", Date: "every 04-25"}
+	a := planEntries(t, s, "2025-01-01", "2026-12-31", p)
+	b := planEntries(t, s, "2026-01-01", "2027-12-31", p)
+	if len(a) != 2 || len(b) != 2 || a[1].UID != b[0].UID || a[0].UID == a[1].UID {
+		t.Fatalf("UIDs %v / %v", a, b)
+	}
+	if !a[0].AllDay || a[0].End.Sub(a[0].Start) != 24*time.Hour {
+		t.Errorf("all-day plan %+v", a[0])
+	}
+}

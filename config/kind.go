@@ -41,6 +41,7 @@ const (
 	FamilyTwilight = "twilight" // civil, nautical, astronomical twilight, golden and blue hour
 	FamilyYear     = "year"     // equinoxes, solstices, cross-quarter days, perihelion, aphelion
 	FamilyMoon     = "moon"     // phases, moonrise, moonset, transit, dark-sky windows
+	FamilyEclipse  = "eclipse"  // solar and lunar eclipses seen from the site
 )
 
 type kindFlags uint8
@@ -94,6 +95,8 @@ var kindTable = []kindDef{
 	{name: "moonset", family: FamilyMoon, flags: flagMoon, doc: "upper limb of the Moon on the horizon, setting"},
 	{name: "moon-transit", family: FamilyMoon, flags: flagMoon, doc: "the Moon crosses the meridian"},
 	{name: "dark-window", family: FamilyMoon, flags: flagMoon | flagSpan, doc: "spans of astronomical night with the Moon below the horizon (or lit less than max_illumination)"},
+	{name: "solar-eclipse", family: FamilyEclipse, flags: flagMoon | flagSpan | flagYearly, doc: "solar eclipses seen from the site, first to last contact, with type, magnitude and obscuration there"},
+	{name: "lunar-eclipse", family: FamilyEclipse, flags: flagMoon | flagSpan | flagYearly, doc: "lunar eclipses with the Moon above the site's horizon for any part, first to last penumbral contact"},
 }
 
 var kindIndex = func() map[string]*kindDef {
@@ -279,7 +282,7 @@ func (k Kind) MarshalText() ([]byte, error) {
 func (k Kind) IsZero() bool { return k == Kind{} }
 
 // Family returns the group a kind belongs to: FamilySun, FamilyTwilight,
-// FamilyYear or FamilyMoon ("" for an unknown name).
+// FamilyYear, FamilyMoon or FamilyEclipse ("" for an unknown name).
 func (k Kind) Family() string {
 	if d, ok := kindIndex[k.Name]; ok {
 		return d.family
@@ -293,16 +296,16 @@ func (k Kind) has(f kindFlags) bool {
 }
 
 // IsSpan reports whether the kind's events are intervals with a start and an
-// end (golden-hour, blue-hour, dark-window) rather than instants.
+// end (golden-hour, blue-hour, dark-window, eclipses) rather than instants.
 func (k Kind) IsSpan() bool { return k.has(flagSpan) }
 
 // IsMoon reports whether computing the kind needs the Moon's position
-// (phases, moonrise, moonset, moon-transit, dark-window).
+// (phases, moonrise, moonset, moon-transit, dark-window, eclipses).
 func (k Kind) IsMoon() bool { return k.has(flagMoon) }
 
 // IsYearly reports whether the kind has a few events a year or a month
-// (equinoxes, solstices, cross-quarter days, apsides, moon phases) rather than
-// events computed day by day.
+// (equinoxes, solstices, cross-quarter days, apsides, moon phases, eclipses)
+// rather than events computed day by day.
 func (k Kind) IsYearly() bool { return k.has(flagYearly) }
 
 // IsAllDay reports whether the kind's events are all-day entries by nature

@@ -19,6 +19,7 @@ func TestKindVocabulary(t *testing.T) {
 		"perihelion", "aphelion", "photoperiod", "lighting", "daily-summary",
 		"new-moon", "first-quarter", "full-moon", "last-quarter", "moon-phases",
 		"moonrise", "moonset", "moon-transit", "dark-window",
+		"solar-eclipse", "lunar-eclipse",
 	}
 	if !slices.Equal(KindNames, want) {
 		t.Errorf("KindNames\n got %q\nwant %q", KindNames, want)
@@ -135,9 +136,9 @@ func TestKindPredicates(t *testing.T) {
 			t.Errorf("%s: got %q, want %q", what, got, want)
 		}
 	}
-	check("IsSpan", is(Kind.IsSpan), []string{"golden-hour", "blue-hour", "lighting", "dark-window"})
-	check("IsMoon", is(Kind.IsMoon), []string{"new-moon", "first-quarter", "full-moon", "last-quarter", "moon-phases", "moonrise", "moonset", "moon-transit", "dark-window"})
-	check("IsYearly", is(Kind.IsYearly), []string{"march-equinox", "june-solstice", "september-equinox", "december-solstice", "seasons", "cross-quarter", "perihelion", "aphelion", "new-moon", "first-quarter", "full-moon", "last-quarter", "moon-phases"})
+	check("IsSpan", is(Kind.IsSpan), []string{"golden-hour", "blue-hour", "lighting", "dark-window", "solar-eclipse", "lunar-eclipse"})
+	check("IsMoon", is(Kind.IsMoon), []string{"new-moon", "first-quarter", "full-moon", "last-quarter", "moon-phases", "moonrise", "moonset", "moon-transit", "dark-window", "solar-eclipse", "lunar-eclipse"})
+	check("IsYearly", is(Kind.IsYearly), []string{"march-equinox", "june-solstice", "september-equinox", "december-solstice", "seasons", "cross-quarter", "perihelion", "aphelion", "new-moon", "first-quarter", "full-moon", "last-quarter", "moon-phases", "solar-eclipse", "lunar-eclipse"})
 	check("IsGroup", is(Kind.IsGroup), []string{"seasons", "moon-phases"})
 	check("IsAllDay", is(Kind.IsAllDay), []string{"photoperiod", "daily-summary"})
 

@@ -37,6 +37,9 @@ type Event struct {
 	Waxing       bool          // Moon events: the Moon is waxing
 	Lamp         time.Duration // lighting: length of the lamp period
 	Short        bool          // lighting: clipped by latest_off/earliest_on, the target is not reached
+	// Eclipses: the local circumstances (one of the two is set).
+	Solar *astro.LocalSolarEclipse
+	Lunar *astro.LocalLunarEclipse
 }
 
 // Note is an explicit "no event" state for a local date: the Sun does not set,
@@ -72,6 +75,9 @@ type Sky struct {
 	moonErr  error
 
 	years sync.Map // yearKey → yearValue: seasons, cross-quarters, apsides
+
+	eclipseOnce sync.Once
+	eclipses    eclipseList
 }
 
 // yearKey names one year's result of a yearly computation.
@@ -266,6 +272,8 @@ func (c *collector) compute(k config.Kind) error {
 		return c.lighting(k)
 	case "daily-summary":
 		return nil // rendered from other kinds by the catalogue
+	case "solar-eclipse", "lunar-eclipse":
+		return c.eclipses(k)
 	}
 	return c.addMoon(k)
 }

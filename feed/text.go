@@ -124,6 +124,8 @@ var plainNames = map[string]string{
 	"moonset":           "Moonset",
 	"moon-transit":      "Moon highest",
 	"dark-window":       "Dark sky",
+	"solar-eclipse":     "Solar eclipse",
+	"lunar-eclipse":     "Lunar eclipse",
 }
 
 var twilightMeaning = map[string]string{
@@ -149,7 +151,7 @@ func categories(k config.Kind) []string {
 		name = "Season"
 	}
 	family := "Sun"
-	if strings.Contains(k.Name, "moon") || k.Name == "first-quarter" || k.Name == "last-quarter" || k.Name == "dark-window" {
+	if strings.Contains(k.Name, "moon") || k.Name == "first-quarter" || k.Name == "last-quarter" || k.Name == "dark-window" || k.Name == "lunar-eclipse" {
 		family = "Moon"
 	}
 	return []string{family, name}
@@ -250,6 +252,8 @@ func describe(s *siteInfo, e Event) (string, string) {
 		fmt.Fprintf(&b, "%s today at %s: the Sun is up for %s (%s on the day before).\n"+
 			"Lighting programs for greenhouses and livestock switch on this threshold.",
 			title, s.Name, hm(e.DayLength), change(e.DayChange))
+	case "solar-eclipse", "lunar-eclipse":
+		return describeEclipse(s, e)
 	default:
 		return describeMoon(s, e)
 	}

@@ -131,7 +131,7 @@ func chartsFor(cfg *config.Config, now time.Time) func(context.Context, feed.Sit
 				switch {
 				case k.Name == "photoperiod" && !seen[k.String()]:
 					chart.Levels = append(chart.Levels, publish.Level{Length: k.DayLength})
-				case k.IsYearly() && !k.IsMoon() && !seen[k.String()]:
+				case k.IsYearly() && (!k.IsMoon() || k.Family() == config.FamilyEclipse) && !seen[k.String()]:
 					marks = append(marks, k)
 				}
 				seen[k.String()] = true
@@ -162,6 +162,8 @@ func markLabel(e feed.Event) string {
 		return "Dec solstice"
 	case "cross-quarter":
 		return "cross-quarter " + e.Part + "°"
+	case "solar-eclipse", "lunar-eclipse":
+		return eclipseMark(e)
 	}
 	return e.Kind.Name
 }

@@ -232,9 +232,11 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 const jsonTime = "2006-01-02T15:04:05.000Z07:00"
 
 type jsonEvent struct {
-	Kind      string   `json:"kind"`
-	Start     string   `json:"start"`
-	End       string   `json:"end,omitempty"`
+	Kind  string `json:"kind"`
+	Start string `json:"start"`
+	End   string `json:"end,omitempty"`
+	// eclipse fields (max, type, magnitudes, phases), inline
+	*jsonEclipse
 	Direction string   `json:"direction,omitempty"`
 	Date      string   `json:"date"`
 	Part      string   `json:"part,omitempty"`
@@ -301,6 +303,7 @@ func toJSONEvent(e feed.Event) jsonEvent {
 		l := math.Round(e.Lamp.Seconds()*1000) / 1000
 		j.Lamp, j.Short = &l, e.Short
 	}
+	j.jsonEclipse = eclipseJSON(e)
 	if strings.Contains(e.Kind.Name, "moon") || e.Kind.Name == "first-quarter" || e.Kind.Name == "last-quarter" {
 		f := math.Round(e.Illuminated*1e4) / 1e4
 		j.Lit = &f
@@ -446,6 +449,7 @@ func details(e *feed.Event, loc *time.Location) string {
 	if e.Illuminated > 0 {
 		parts = append(parts, fmt.Sprintf("%.0f%% lit", e.Illuminated*100))
 	}
+	parts = append(parts, eclipseDetails(e, loc)...)
 	return strings.Join(parts, ", ")
 }
 

@@ -1,0 +1,102 @@
+package main
+
+import (
+	"fmt"
+	"math"
+	"time"
+
+	"heliocal/astro"
+	"heliocal/feed"
+)
+
+// jsonEclipse holds the fields an eclipse adds to its JSON event: for the
+// Sun {"max", "type", "magnitude", "obscuration"} and "total_start"/"total_end"
+// (second and third contact) when the eclipse is total or annular at the
+// site; for the Moon {"max", "type", "umbral_magnitude"} and
+// "partial_start"/"partial_end" (U1, U4), "total_start"/"total_end" (U2, U3)
+// where they exist. start and end are the first and last contact (P1, P4).
+type jsonEclipse struct {
+	Max             string   `json:"max"`
+	Type            string   `json:"type"`
+	Magnitude       *float64 `json:"magnitude,omitempty"`
+	Obscuration     *float64 `json:"obscuration,omitempty"`
+	UmbralMagnitude *float64 `json:"umbral_magnitude,omitempty"`
+	PartialStart    string   `json:"partial_start,omitempty"`
+	PartialEnd      string   `json:"partial_end,omitempty"`
+	TotalStart      string   `json:"total_start,omitempty"`
+	TotalEnd        string   `json:"total_end,omitempty"`
+}
+
+// eclipseJSON returns the eclipse fields of an event, nil for other kinds.
+func eclipseJSON(e feed.Event) *jsonEclipse {
+	at := func(t time.Time) string {
+		if t.IsZero() {
+			return ""
+		}
+		return t.UTC().Format(jsonTime)
+	}
+	round := func(v float64) *float64 {
+		r := math.Round(v*1e4) / 1e4
+		return &r
+	}
+	switch {
+	case e.Solar != nil:
+		l := e.Solar
+		return &jsonEclipse{Max: at(l.Max.Time), Type: l.Type.String(), Magnitude: round(l.Magnitude),
+			Obscuration: round(l.Obscuration), TotalStart: at(l.C2.Time), TotalEnd: at(l.C3.Time)}
+	case e.Lunar != nil:
+		l := e.Lunar.Eclipse
+		return &jsonEclipse{Max: at(l.Max), Type: l.Type.String(), UmbralMagnitude: round(l.UmbralMagnitude),
+			PartialStart: at(l.U1), PartialEnd: at(l.U4), TotalStart: at(l.U2), TotalEnd: at(l.U3)}
+	}
+	return nil
+}
+
+// eclipseDetails are the table's details of an eclipse: type, maximum and
+// its numbers, and the body's risings and settings during it.
+func eclipseDetails(e *feed.Event, loc *time.Location) []string {
+	var parts []string
+	horizon := func(hs []astro.HorizonEvent, body string) {
+		for _, h := range hs {
+			verb := "rises"
+			if h.Direction == astro.Setting {
+				verb = "sets"
+			}
+			parts = append(parts, fmt.Sprintf("%s %s %s", body, verb, h.Time.In(loc).Format("15:04:05")))
+		}
+	}
+	switch {
+	case e.Solar != nil:
+		l := e.Solar
+		parts = append(parts, l.Type.String(), fmt.Sprintf("max %s", l.Max.Time.In(loc).Format("15:04:05")),
+			fmt.Sprintf("magnitude %.3f", l.Magnitude), fmt.Sprintf("obscuration %.3f", l.Obscuration))
+		if !l.C2.IsZero() {
+			parts = append(parts, fmt.Sprintf("%s %s–%s", l.Type, l.C2.Time.In(loc).Format("15:04:05"), l.C3.Time.In(loc).Format("15:04:05")))
+		}
+		if !l.Max.Up {
+			parts = append(parts, "max below the horizon")
+		}
+		horizon(l.Horizon, "Sun")
+	case e.Lunar != nil:
+		l := e.Lunar.Eclipse
+		parts = append(parts, l.Type.String(), fmt.Sprintf("max %s", l.Max.In(loc).Format("15:04:05")),
+			fmt.Sprintf("umbral magnitude %.3f", l.UmbralMagnitude))
+		if !e.Lunar.Max.Up {
+			parts = append(parts, "max below the horizon")
+		}
+		horizon(e.Lunar.Horizon, "Moon")
+	}
+	return parts
+}
+
+// eclipseMark is the year chart's label of an eclipse: "partial solar
+// eclipse", "total lunar eclipse".
+func eclipseMark(e feed.Event) string {
+	switch {
+	case e.Solar != nil:
+		return e.Solar.Type.String() + " solar eclipse"
+	case e.Lunar != nil:
+		return e.Lunar.Eclipse.Type.String() + " lunar eclipse"
+	}
+	return e.Kind.Name
+}

@@ -1,0 +1,274 @@
+package feed
+
+import (
+	"fmt"
+	"math"
+	"strings"
+	"time"
+
+	"heliocal/astro"
+	"heliocal/config"
+)
+
+// Eclipses of the Sun and the Moon for a site: the global search runs once
+// per Sky (every eclipse of its span), and each site then takes the local
+// circumstances of those it sees.
+
+// eclipseList is the global search of one Sky.
+type eclipseList struct {
+	solar []*astro.SolarEclipse
+	lunar []*astro.LunarEclipse
+	err   error
+}
+
+// eclipseSearch finds every eclipse of the Sky's span, once.
+func (s *Sky) eclipseSearch() *eclipseList {
+	s.eclipseOnce.Do(func() {
+		l := &s.eclipses
+		l.solar, l.err = astro.SolarEclipses(s.from, s.to)
+		if l.err == nil {
+			l.lunar, l.err = astro.LunarEclipses(s.from, s.to)
+		}
+	})
+	return &s.eclipses
+}
+
+// eclipses adds the eclipses the site sees: those with any part (first to
+// last contact, P1 to P4 for the Moon) while the body is above the site's
+// horizon, on the local date of their first contact.
+func (c *collector) eclipses(k config.Kind) error {
+	list := c.sky.eclipseSearch()
+	if list.err != nil {
+		return list.err
+	}
+	o := c.p.Observer
+	if err := o.Validate(); err != nil {
+		return err
+	}
+	add := func(start, end time.Time, e Event) {
+		e.Kind, e.Start, e.End = k, start, end
+		e.Date = localDate(start, c.p.Location)
+		if c.inRange(e.Date) {
+			c.events = append(c.events, e)
+		}
+	}
+	if k.Name == "solar-eclipse" {
+		for _, e := range list.solar {
+			if l, ok := e.Local(o); ok && l.Visible() {
+				add(l.C1.Time, l.C4.Time, Event{Solar: &l})
+			}
+		}
+		return nil
+	}
+	for _, e := range list.lunar {
+		if l := e.Local(o); l.Visible() {
+			add(l.P1.Time, l.P4.Time, Event{Lunar: &l})
+		}
+	}
+	return nil
+}
+
+// Cautions and conventions written into every eclipse entry.
+const (
+	cautionEclipse = "Never look at the Sun without eye protection made to the ISO 12312-2 standard " +
+		"(eclipse glasses or a hand-held solar viewer): sunglasses do not protect, and neither do " +
+		"unfiltered cameras, binoculars or telescopes. Follow the advice of your local health authority."
+	solarMethod = "Computed for the site from Besselian elements of heliocal's own Sun and Moon, with the " +
+		"Moon's mean limb (k = 0.2725076): the Moon's mountains can move second and third contact by a " +
+		"second or two. Sun altitudes are geometric, for the Sun's centre."
+	lunarMethod = "The contacts are the same for everyone who sees the Moon. The Earth's shadow is enlarged " +
+		"by Danjon's rule (1/85 of the Earth's radius for the atmosphere), as in NASA's Five Millennium " +
+		"Canon of Lunar Eclipses; other conventions move the contacts by up to about a minute. " +
+		"A lunar eclipse is safe to watch with the naked eye."
+)
+
+// compass names an azimuth (degrees from north through east) on 16 points.
+func compass(az float64) string {
+	names := [16]string{"north", "north-northeast", "northeast", "east-northeast", "east", "east-southeast",
+		"southeast", "south-southeast", "south", "south-southwest", "southwest", "west-southwest", "west",
+		"west-northwest", "northwest", "north-northwest"}
+	return names[int(math.Mod(az+11.25+360, 360)/22.5)%16]
+}
+
+// share writes a fraction as a whole percentage like percent, "89 %", but a
+// fraction that is not zero never rounds to "0 %" and one below 1 never to
+// "100 %": an eclipse of 0.3 % is still an eclipse.
+func share(f float64) string {
+	p := math.Round(f * 100)
+	switch {
+	case p == 0 && f > 0:
+		p = 1
+	case p == 100 && f < 1:
+		p = 99
+	}
+	return fmt.Sprintf("%.0f %%", p)
+}
+
+// bodyPlace describes a body's place at a contact: "Sun 23° high in the
+// southwest" or "Sun below the horizon".
+func bodyPlace(body string, c astro.Contact) string {
+	if !c.Up {
+		return body + " below the horizon"
+	}
+	return fmt.Sprintf("%s %s high in the %s (azimuth %.0f°)", body, degreesWhole(c.Altitude), compass(c.Azimuth), c.Azimuth)
+}
+
+// degreesWhole writes an angle to the degree, with a proper minus sign.
+func degreesWhole(a float64) string {
+	return strings.Replace(fmt.Sprintf("%.0f°", a), "-", "−", 1)
+}
+
+// describeEclipse gives the title and description of an eclipse entry.
+func describeEclipse(s *siteInfo, e Event) (string, string) {
+	if e.Solar != nil {
+		return describeSolar(s, e.Solar)
+	}
+	return describeLunar(s, e.Lunar)
+}
+
+func describeSolar(s *siteInfo, l *astro.LocalSolarEclipse) (string, string) {
+	loc := s.TimeZone.Location
+	typ := l.Type.String()
+	var b strings.Builder
+	fmt.Fprintf(&b, "%s solar eclipse seen from %s, %s to %s.\n", capital(typ), s.where,
+		localClock(l.C1.Time, loc), localClock(l.C4.Time, loc))
+	line := func(name string, c astro.Contact, extra string) {
+		fmt.Fprintf(&b, "%s %s; %s%s.\n", localClock(c.Time, loc), name, bodyPlace("Sun", c), extra)
+	}
+	line("first contact, the Moon begins to cover the Sun", l.C1, "")
+	if !l.C2.IsZero() {
+		line("second contact, the "+typ+" phase begins", l.C2, "")
+	}
+	cover := fmt.Sprintf("; the Moon covers %s of the Sun's diameter and %s of its disc", share(l.Magnitude), share(l.Obscuration))
+	if l.Type != astro.Partial {
+		cover = fmt.Sprintf("; the Moon's disc is %s the Sun's diameter (magnitude %.3f), the %s phase lasts %s",
+			share(l.Magnitude), l.Magnitude, typ, amount(l.C3.Time.Sub(l.C2.Time).Round(time.Second)))
+	}
+	line("greatest eclipse", l.Max, cover)
+	if !l.C3.IsZero() {
+		line("third contact, the "+typ+" phase ends", l.C3, "")
+	}
+	line("last contact, the eclipse ends", l.C4, "")
+	best := l.Magnitude
+	if !l.Max.Up {
+		best = 0
+	}
+	for _, h := range l.Horizon {
+		verb, state := "rises", "already eclipsed"
+		if h.Direction == astro.Setting {
+			verb, state = "sets", "still eclipsed"
+		}
+		fmt.Fprintf(&b, "The Sun %s at %s %s, %s of its diameter covered.\n", verb, localClock(h.Time, loc), state, share(h.Magnitude))
+		best = math.Max(best, h.Magnitude)
+	}
+	if !l.Max.Up {
+		b.WriteString("Greatest eclipse happens with the Sun below the horizon here; the part listed above the horizon is what can be seen.\n")
+	}
+	if g := l.Eclipse.Type; g != l.Type && !(g == astro.Hybrid && l.Type != astro.Partial) {
+		fmt.Fprintf(&b, "Elsewhere on the Earth this eclipse is %s.\n", g)
+	}
+	b.WriteString(cautionEclipse + "\n" + solarMethod)
+	b.WriteString(FutureNote(l.Max.Time))
+
+	title := fmt.Sprintf("%s solar eclipse: %s of the Sun's diameter covered", capital(typ), share(best))
+	switch l.Type {
+	case astro.Total:
+		title = fmt.Sprintf("Total solar eclipse: %s of totality", amount(l.C3.Time.Sub(l.C2.Time).Round(time.Second)))
+	case astro.Annular:
+		title = fmt.Sprintf("Annular solar eclipse: %s of annularity", amount(l.C3.Time.Sub(l.C2.Time).Round(time.Second)))
+	}
+	if l.Type != astro.Partial && (!l.C2.Up || !l.C3.Up) {
+		title = fmt.Sprintf("%s solar eclipse at the horizon", capital(typ))
+	}
+	switch {
+	case len(l.Horizon) > 0 && l.Horizon[0].Direction == astro.Rising:
+		title += " (at sunrise)"
+	case len(l.Horizon) > 0:
+		title += " (at sunset)"
+	}
+	return title, b.String()
+}
+
+func describeLunar(s *siteInfo, l *astro.LocalLunarEclipse) (string, string) {
+	loc := s.TimeZone.Location
+	e := l.Eclipse
+	typ := e.Type.String()
+	var b strings.Builder
+	fmt.Fprintf(&b, "%s lunar eclipse seen from %s, %s to %s.\n", capital(typ), s.where,
+		localClock(l.P1.Time, loc), localClock(l.P4.Time, loc))
+	line := func(name string, c astro.Contact, extra string) {
+		if c.IsZero() {
+			return
+		}
+		fmt.Fprintf(&b, "%s %s; %s%s.\n", localClock(c.Time, loc), name, moonPlace(c), extra)
+	}
+	line("the Moon enters the faint outer shadow (penumbra)", l.P1, "")
+	line("the partial eclipse begins: the Moon enters the dark shadow (umbra)", l.U1, "")
+	line("the total eclipse begins", l.U2, "")
+	var depth string
+	switch e.Type {
+	case astro.Total:
+		depth = fmt.Sprintf("; umbral magnitude %.3f: the whole Moon is in the Earth's shadow, "+
+			"its far edge %s of its diameter inside; totality lasts %s", e.UmbralMagnitude,
+			share(e.UmbralMagnitude-1), amount(e.U3.Sub(e.U2).Round(time.Second)))
+	case astro.Partial:
+		depth = fmt.Sprintf("; umbral magnitude %.3f: %s of the Moon's diameter is in the Earth's shadow",
+			e.UmbralMagnitude, share(e.UmbralMagnitude))
+	default:
+		depth = fmt.Sprintf("; penumbral magnitude %.3f: %s of the Moon's diameter is in the faint outer shadow, "+
+			"a slight dimming that is easy to miss", e.PenumbralMagnitude, share(e.PenumbralMagnitude))
+	}
+	line("greatest eclipse", l.Max, depth)
+	line("the total eclipse ends", l.U3, "")
+	line("the partial eclipse ends: the Moon leaves the umbra", l.U4, "")
+	line("the Moon leaves the penumbra: the eclipse ends", l.P4, "")
+	rises, sets := false, false
+	for _, h := range l.Horizon {
+		verb := "rises"
+		if h.Direction == astro.Setting {
+			verb = "sets"
+			sets = true
+		} else {
+			rises = true
+		}
+		fmt.Fprintf(&b, "The Moon %s at %s during the eclipse (%s).\n", verb, localClock(h.Time, loc), lunarPhaseAt(e, h.Time))
+	}
+	b.WriteString(lunarMethod)
+	b.WriteString(FutureNote(e.Max))
+
+	var title string
+	switch e.Type {
+	case astro.Total:
+		title = fmt.Sprintf("Total lunar eclipse: the Moon in the Earth's shadow for %s", amount(e.U3.Sub(e.U2).Round(time.Minute)))
+	case astro.Partial:
+		title = fmt.Sprintf("Partial lunar eclipse: %s of the Moon in the Earth's shadow", share(e.UmbralMagnitude))
+	default:
+		title = "Penumbral lunar eclipse: a slight dimming of the Moon"
+	}
+	switch {
+	case rises && sets:
+		title += " (the Moon rises and sets during it)"
+	case rises:
+		title += " (at moonrise)"
+	case sets:
+		title += " (at moonset)"
+	}
+	return title, b.String()
+}
+
+// moonPlace describes the Moon at a lunar-eclipse contact.
+func moonPlace(c astro.Contact) string {
+	return bodyPlace("Moon", c)
+}
+
+// lunarPhaseAt names the phase of a lunar eclipse in progress at t.
+func lunarPhaseAt(e *astro.LunarEclipse, t time.Time) string {
+	in := func(a, b time.Time) bool { return !a.IsZero() && !t.Before(a) && t.Before(b) }
+	switch {
+	case in(e.U2, e.U3):
+		return "in the total phase"
+	case in(e.U1, e.U4):
+		return "in the partial phase"
+	}
+	return "in the penumbral phase, hardly noticeable"
+}

@@ -3,6 +3,7 @@ package config
 import (
 	_ "embed"
 	"fmt"
+	"slices"
 	"strings"
 	"sync"
 	"time"
@@ -93,6 +94,11 @@ var zoneNames = func() []string {
 	}
 	return names
 }()
+
+// ZoneNames returns the time zone names heliocal knows, sorted (UTC first),
+// for shell completion: the tz database of the Go toolchain heliocal was
+// built with (see gen_zonenames.go).
+func ZoneNames() []string { return slices.Clone(zoneNames) }
 
 // zoneHint suggests the known zone nearest to a misspelt name: same name with
 // other capitals, same city with another region, or the nearest by edit

@@ -23,6 +23,9 @@ const defaultKinds = "sunrise,sunset,solar-noon,civil-dawn,civil-dusk"
 
 type eventsOptions struct {
 	site      string
+	feed      string
+	feedSpecs []config.KindSpec // the kinds of --feed
+	kindsSet  bool              // --kinds given
 	lat, lon  float64
 	elev      float64
 	horizon   float64
@@ -48,9 +51,10 @@ func newEventsCommand(g *globals) *cobra.Command {
 place is taken from an offline map of the zone boundaries (the nautical zone Etc/GMT±N at
 sea), and a note on stderr names it.
 
-Kinds (comma-separated): ` + strings.Join(config.KindNames, ", ") + `
+` + kindsHelp() + `
+
 Parametrised kinds: sun-altitude:<degrees> (e.g. sun-altitude:-3), photoperiod:<duration>
-(e.g. photoperiod:12h30m).
+(e.g. photoperiod:12h30m), lighting:<duration> (e.g. lighting:16h).
 
 Formats: table (local times, readable), json (UTC instants, RFC 3339 with milliseconds),
 csv (both).` + exitStatusHelp,
@@ -60,12 +64,14 @@ csv (both).` + exitStatusHelp,
 		RunE: func(cmd *cobra.Command, _ []string) error {
 			o.latGiven, o.lonGiven = cmd.Flags().Changed("lat"), cmd.Flags().Changed("lon")
 			o.placeFlag = o.latGiven || o.lonGiven
+			o.kindsSet = cmd.Flags().Changed("kinds")
 			o.now = time.Now()
 			return runEvents(cmd.Context(), g, o)
 		},
 	}
 	f := cmd.Flags()
 	f.StringVar(&o.site, "site", "", "id of a configured site")
+	f.StringVar(&o.feed, "feed", "", "id of a configured feed: its site, and its kinds unless --kinds is given")
 	f.Float64Var(&o.lat, "lat", 0, "latitude in degrees, north positive (−90..90)")
 	f.Float64Var(&o.lon, "lon", 0, "longitude in degrees, east positive (−180..180)")
 	f.Float64Var(&o.elev, "elev", 0, "elevation in metres above sea level")
@@ -77,12 +83,18 @@ csv (both).` + exitStatusHelp,
 	f.StringVarP(&o.format, "format", "f", "table", "output format: table, json or csv")
 	f.Float64Var(&o.maxLit, "max-illumination", 0, "dark-window: the Moon may be up while less than this fraction is lit (0..1)")
 	_ = cmd.RegisterFlagCompletionFunc("format", cobra.FixedCompletions([]string{"table", "json", "csv"}, cobra.ShellCompDirectiveNoFileComp))
-	_ = cmd.RegisterFlagCompletionFunc("kinds", cobra.FixedCompletions(config.KindNames, cobra.ShellCompDirectiveNoFileComp|cobra.ShellCompDirectiveNoSpace))
+	_ = cmd.RegisterFlagCompletionFunc("kinds", completeKinds)
+	_ = cmd.RegisterFlagCompletionFunc("site", completeFromConfig(g, siteIDs))
+	_ = cmd.RegisterFlagCompletionFunc("feed", completeFromConfig(g, feedIDs))
+	_ = cmd.RegisterFlagCompletionFunc("tz", completeZones)
 	return cmd
 }
 
 // eventsPlace resolves the site the events are computed for.
 func eventsPlace(g *globals, o *eventsOptions) (*config.Site, error) {
+	if o.feed != "" {
+		return feedPlace(g, o)
+	}
 	if o.site != "" {
 		if o.placeFlag || o.tz != "" {
 			return nil, badInput("--site %q: give either --site or --lat/--lon/--tz, not both", o.site)
@@ -132,6 +144,36 @@ func eventsPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 	}
 	s.Name = fmt.Sprintf("%.4f, %.4f", o.lat, o.lon)
 	return s, nil
+}
+
+// feedPlace resolves --feed: the feed's site, and its kinds for runEvents.
+func feedPlace(g *globals, o *eventsOptions) (*config.Site, error) {
+	if o.site != "" || o.placeFlag || o.tz != "" {
+		return nil, badInput("--feed %q: give either --feed, --site or --lat/--lon/--tz", o.feed)
+	}
+	cfg, _, err := loadConfig(g)
+	if err != nil {
+		return nil, err
+	}
+	f, ok := cfg.Feed(o.feed)
+	if !ok {
+		ids := make([]string, len(cfg.Feeds))
+		for i, f := range cfg.Feeds {
+			ids[i] = f.ID
+		}
+		return nil, badInput("--feed: %q: no such feed (configured: %s)", o.feed, strings.Join(ids, ", "))
+	}
+	for _, k := range f.Kinds {
+		if k.Kind.Name != "daily-summary" { // a feed entry made of other kinds, not an event
+			o.feedSpecs = append(o.feedSpecs, k)
+		}
+	}
+	for i := range cfg.Sites {
+		if cfg.Sites[i].ID == f.Site {
+			return &cfg.Sites[i], nil
+		}
+	}
+	return nil, fmt.Errorf("feed %q: site %q not found", f.ID, f.Site) // Validate prevents this
 }
 
 func parseDate(flag, v string, loc *time.Location) (time.Time, error) {
@@ -199,9 +241,17 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 		return badInput("--from/--to: %s..%s: outside the supported dates %s..%s", from.Format(time.DateOnly),
 			to.Format(time.DateOnly), lo.Format(time.DateOnly), hi.Format(time.DateOnly))
 	}
-	kinds, err := parseKinds(o.kinds)
-	if err != nil {
-		return err
+	var specs []config.KindSpec
+	if o.feedSpecs != nil && !o.kindsSet {
+		specs = o.feedSpecs
+	} else {
+		kinds, err := parseKinds(o.kinds)
+		if err != nil {
+			return err
+		}
+		for _, k := range kinds {
+			specs = append(specs, config.KindSpec{Kind: k})
+		}
 	}
 	sky, err := feed.NewSky(from, to)
 	if err != nil {
@@ -210,9 +260,10 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 	if math.IsNaN(o.maxLit) || o.maxLit < 0 || o.maxLit > 1 {
 		return badInput("--max-illumination: %v: must be within 0..1", o.maxLit)
 	}
-	specs := make([]config.KindSpec, len(kinds))
-	for i, k := range kinds {
-		specs[i] = config.KindSpec{Kind: k, MaxIllumination: o.maxLit}
+	if o.maxLit != 0 || len(o.feedSpecs) == 0 {
+		for i := range specs {
+			specs[i].MaxIllumination = o.maxLit
+		}
 	}
 	events, notes, err := sky.EventsFor(ctx, feed.PlaceOf(site), specs, from, to)
 	if err != nil {

@@ -120,6 +120,7 @@ Configuration: --config FILE, else ./heliocal.yaml, else the built-in demo.` + e
 		Version:       currentVersion().String(),
 	}
 	root.SetVersionTemplate("{{.Version}}\n")
+	installHelp(root, g)
 	root.PersistentFlags().StringVarP(&g.configPath, "config", "c", "", "configuration file (YAML, TOML or JSON); - reads it from standard input")
 	root.SetFlagErrorFunc(func(_ *cobra.Command, err error) error { return inputError{err} })
 	root.CompletionOptions.DisableDefaultCmd = true

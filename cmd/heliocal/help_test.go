@@ -1,0 +1,130 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"strconv"
+	"strings"
+	"testing"
+	"unicode/utf8"
+)
+
+func runCLIEnv(t *testing.T, env map[string]string, args ...string) (int, string, string) {
+	t.Helper()
+	var out, errOut bytes.Buffer
+	getenv := func(k string) (string, bool) { v, ok := env[k]; return v, ok }
+	code := runWithInput(context.Background(), args, strings.NewReader(""), &out, &errOut, getenv)
+	return code, out.String(), errOut.String()
+}
+
+// Help is wrapped to the terminal's width (COLUMNS when the output is not
+// a terminal), and the kinds are listed by family, not in one long line.
+func TestHelpWrapped(t *testing.T) {
+	for _, cols := range []int{60, 100} {
+		for _, cmd := range []string{"events", "check", "serve", "publish"} {
+			code, out, errOut := runCLIEnv(t, map[string]string{"COLUMNS": strconv.Itoa(cols)}, cmd, "--help")
+			if code != 0 {
+				t.Fatalf("%s --help: exit %d: %s", cmd, code, errOut)
+			}
+			inExamples := false
+			for _, line := range strings.Split(out, "\n") {
+				switch {
+				case line == "Examples:":
+					inExamples = true // command lines are not broken
+				case line == "" || !strings.HasPrefix(line, " "):
+					inExamples = false
+				}
+				n := utf8.RuneCountInString(line)
+				if n <= cols-1 || inExamples {
+					continue
+				}
+				// only a single word longer than the width may stick out
+				if f := strings.Fields(line); len(f) > 1 && !strings.HasPrefix(strings.TrimSpace(line), "(default") {
+					t.Errorf("%s --help at %d columns: line of %d: %q", cmd, cols, n, line)
+				}
+			}
+		}
+	}
+	_, out, _ := runCLIEnv(t, map[string]string{"COLUMNS": "80"}, "events", "--help")
+	for _, row := range []string{"  Sun:       sunrise, sunset, solar-noon", "  Twilight:  civil-dawn, civil-dusk", "  Year:      march-equinox", "  Moon:      new-moon"} {
+		if !strings.Contains(out, row) {
+			t.Errorf("events --help lacks the row %q:\n%s", row, out)
+		}
+	}
+	if strings.Contains(out, "sunrise, sunset, solar-noon, civil-dawn") {
+		t.Error("events --help still lists every kind in one line")
+	}
+	// every kind is in the list
+	for _, k := range []string{"dark-window", "moon-transit", "photoperiod:<duration>", "sun-altitude:<degrees>", "aphelion", "blue-hour"} {
+		if !strings.Contains(out, k) {
+			t.Errorf("events --help lacks %s", k)
+		}
+	}
+}
+
+func TestWrapText(t *testing.T) {
+	in := "one two three four five six seven\n\nHead:\n  Row:   a, b, c, d, e, f, g, h\n  2  short"
+	want := "one two three\nfour five six\nseven\n\nHead:\n  Row:   a, b,\n         c, d,\n         e, f,\n         g, h\n  2  short"
+	if got := wrapText(in, 14); got != want {
+		t.Errorf("wrapText:\n%s\nwant:\n%s", got, want)
+	}
+}
+
+// Completion offers the configured site and feed ids, the tz database's
+// zones and the kinds (the last of a comma-separated list).
+func TestCompletion(t *testing.T) {
+	complete := func(args ...string) []string {
+		t.Helper()
+		code, out, errOut := runCLI(t, append([]string{"__complete"}, args...)...)
+		if code != 0 {
+			t.Fatalf("__complete %v: exit %d: %s", args, code, errOut)
+		}
+		var words []string
+		for _, line := range strings.Split(strings.TrimSpace(out), "\n") {
+			if !strings.HasPrefix(line, ":") {
+				word, _, _ := strings.Cut(line, "\t")
+				words = append(words, word)
+			}
+		}
+		return words
+	}
+	check := func(got []string, want ...string) {
+		t.Helper()
+		if strings.Join(got, " ") != strings.Join(want, " ") {
+			t.Errorf("got %q, want %q", got, want)
+		}
+	}
+	check(complete("events", "--site", ""), "fernhollow", "tallowgum", "cairnmoor", "skarvlia")
+	check(complete("events", "--site", "t"), "tallowgum")
+	check(complete("events", "--feed", "cairnmoor-"), "cairnmoor-night", "cairnmoor-twilight", "cairnmoor-moon")
+	check(complete("events", "--tz", "Pacific/Ch"), "Pacific/Chatham", "Pacific/Chuuk")
+	check(complete("events", "--tz", "europe/vien"), "Europe/Vienna")
+	check(complete("events", "--kinds", "sunrise,sun"), "sunrise,sunset", "sunrise,sun-altitude:")
+	check(complete("events", "--kinds", "moon"), "moon-phases", "moonrise", "moonset", "moon-transit")
+	if zones := complete("events", "--tz", ""); len(zones) < 400 || zones[0] != "UTC" {
+		t.Errorf("%d zones offered, first %q", len(zones), zones[0])
+	}
+}
+
+// events --feed: the site and kinds of a configured feed, with its options.
+func TestEventsFeed(t *testing.T) {
+	code, out, errOut := runCLI(t, "events", "--feed", "cairnmoor-night", "--from", "2027-01-01", "--to", "2027-01-01")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	for _, want := range []string{"Cairnmoor Hill Public Observatory", "astronomical-dawn", "astronomical-dusk", "dark-window"} {
+		if !strings.Contains(out, want) {
+			t.Errorf("output lacks %q:\n%s", want, out)
+		}
+	}
+	code, out, _ = runCLI(t, "events", "--feed", "cairnmoor-night", "--kinds", "sunrise", "--from", "2027-01-01", "--to", "2027-01-01")
+	if code != 0 || !strings.Contains(out, "sunrise") || strings.Contains(out, "dark-window") {
+		t.Errorf("--kinds with --feed: exit %d\n%s", code, out)
+	}
+	if code, _, errOut := runCLI(t, "events", "--feed", "cairnmoor-nite"); code != exitInput || !strings.Contains(errOut, `--feed: "cairnmoor-nite": no such feed`) {
+		t.Errorf("unknown feed: exit %d: %s", code, errOut)
+	}
+	if code, _, errOut := runCLI(t, "events", "--feed", "cairnmoor-night", "--site", "cairnmoor"); code != exitInput || !strings.Contains(errOut, "--feed") {
+		t.Errorf("--feed with --site: exit %d: %s", code, errOut)
+	}
+}

@@ -7,6 +7,8 @@ import (
 	"strings"
 	"testing"
 	"unicode/utf8"
+
+	"heliocal/config"
 )
 
 func runCLIEnv(t *testing.T, env map[string]string, args ...string) (int, string, string) {
@@ -94,9 +96,22 @@ func TestCompletion(t *testing.T) {
 			t.Errorf("got %q, want %q", got, want)
 		}
 	}
-	check(complete("events", "--site", ""), "fernhollow", "tallowgum", "cairnmoor", "skarvlia")
-	check(complete("events", "--site", "t"), "tallowgum")
-	check(complete("events", "--feed", "cairnmoor-"), "cairnmoor-night", "cairnmoor-twilight", "cairnmoor-moon")
+	demo := config.Demo()
+	var sites, feeds []string
+	for _, s := range demo.Sites {
+		sites = append(sites, s.ID)
+	}
+	for _, f := range demo.Feeds {
+		if strings.HasPrefix(f.ID, "cairnmoor-") {
+			feeds = append(feeds, f.ID)
+		}
+	}
+	check(complete("events", "--site", ""), sites...)
+	check(complete("events", "--site", "tallow"), "tallowgum")
+	check(complete("events", "--feed", "cairnmoor-"), feeds...)
+	if len(feeds) < 3 {
+		t.Errorf("the demo has %d cairnmoor feeds", len(feeds))
+	}
 	check(complete("events", "--tz", "Pacific/Ch"), "Pacific/Chatham", "Pacific/Chuuk")
 	check(complete("events", "--tz", "europe/vien"), "Europe/Vienna")
 	check(complete("events", "--kinds", "sunrise,sun"), "sunrise,sunset", "sunrise,sun-altitude:")

@@ -95,6 +95,9 @@ func ParseEnv(r io.Reader, format string, env LookupEnv) (*Config, error) {
 }
 
 func parse(data []byte, format string, env LookupEnv) (c *Config, err error) {
+	if dups := duplicateKeys(data, format); len(dups) > 0 {
+		return nil, newValidationError(dups)
+	}
 	v := viper.New()
 	v.SetConfigType(format)
 	if err := readConfig(v, data); err != nil {

@@ -1,0 +1,223 @@
+package config
+
+import (
+	"bytes"
+	"encoding/json"
+	"fmt"
+	"strconv"
+	"strings"
+
+	"github.com/pelletier/go-toml/v2/unstable"
+	"go.yaml.in/yaml/v3"
+)
+
+// duplicateKeys finds keys written twice in one mapping of a document,
+// ignoring case as the configuration does ("latitude" and "Latitude" are
+// one key). The decoders keep the last one silently, so each is a problem
+// naming both places. Input that does not parse is left to the decoder,
+// which words the syntax error.
+func duplicateKeys(data []byte, format string) (problems []FieldError) {
+	defer func() {
+		if recover() != nil {
+			problems = nil // hostile input: the decoder reports it
+		}
+	}()
+	d := &dupFinder{seen: map[string]keyPlace{}, dups: map[string]bool{}}
+	switch format {
+	case "json":
+		d.json(data)
+	case "yaml":
+		d.yaml(data)
+	case "toml":
+		d.toml(data)
+	}
+	return d.problems
+}
+
+type keyPlace struct {
+	written   string // the key as written
+	line, col int    // 1-based
+}
+
+func (k keyPlace) String() string {
+	return fmt.Sprintf("line %d, column %d (%q)", k.line, k.col, k.written)
+}
+
+type dupFinder struct {
+	seen     map[string]keyPlace // by path with lower-case keys
+	dups     map[string]bool     // paths reported
+	problems []FieldError
+}
+
+// underDuplicate reports whether path or one of its ancestors is a
+// reported duplicate.
+func (d *dupFinder) underDuplicate(path string) bool {
+	for path != "" {
+		if d.dups[path] {
+			return true
+		}
+		i := strings.LastIndexAny(path, ".[")
+		if i < 0 {
+			return false
+		}
+		path = path[:i]
+	}
+	return false
+}
+
+// key records a key of the mapping at parent and returns its path.
+func (d *dupFinder) key(parent, written string, line, col int) string {
+	path := strings.ToLower(written)
+	if parent != "" {
+		path = parent + "." + path
+	}
+	here := keyPlace{written, line, col}
+	if d.underDuplicate(parent) {
+		return path // the enclosing mapping is already reported
+	}
+	if first, dup := d.seen[path]; dup {
+		d.dups[path] = true
+		d.problems = append(d.problems, FieldError{Path: path,
+			Msg:  fmt.Sprintf("duplicate key: written at %s and at %s (keys ignore case; only one may be given)", first, here),
+			Hint: "keep one of them"})
+	} else {
+		d.seen[path] = here
+	}
+	return path
+}
+
+func index(parent string, i int) string { return fmt.Sprintf("%s[%d]", parent, i) }
+
+func (d *dupFinder) json(data []byte) {
+	dec := json.NewDecoder(bytes.NewReader(data))
+	dec.UseNumber()
+	var walk func(path string) bool
+	walk = func(path string) bool {
+		tok, err := dec.Token()
+		if err != nil {
+			return false
+		}
+		switch tok {
+		case json.Delim('{'):
+			for dec.More() {
+				kt, err := dec.Token()
+				if err != nil {
+					return false
+				}
+				k, _ := kt.(string)
+				end := int(dec.InputOffset()) // just after the key's closing quote
+				line := bytes.Count(data[:end], []byte("\n")) + 1
+				col := end - bytes.LastIndexByte(data[:end], '\n') - len(strconv.Quote(k)) // the opening quote, for plain keys
+				if !walk(d.key(path, k, line, max(col, 1))) {
+					return false
+				}
+			}
+		case json.Delim('['):
+			for i := 0; dec.More(); i++ {
+				if !walk(index(path, i)) {
+					return false
+				}
+			}
+		default:
+			return true
+		}
+		_, err = dec.Token() // the closing delimiter
+		return err == nil
+	}
+	walk("")
+}
+
+func (d *dupFinder) yaml(data []byte) {
+	var doc yaml.Node
+	if yaml.Unmarshal(data, &doc) != nil {
+		return
+	}
+	var walk func(n *yaml.Node, path string)
+	walk = func(n *yaml.Node, path string) {
+		switch n.Kind {
+		case yaml.DocumentNode:
+			for _, c := range n.Content {
+				walk(c, path)
+			}
+		case yaml.MappingNode:
+			for i := 0; i+1 < len(n.Content); i += 2 {
+				k := n.Content[i]
+				walk(n.Content[i+1], d.key(path, k.Value, k.Line, k.Column))
+			}
+		case yaml.SequenceNode:
+			for i, c := range n.Content {
+				walk(c, index(path, i))
+			}
+		}
+	}
+	walk(&doc, "")
+}
+
+func (d *dupFinder) toml(data []byte) {
+	p := unstable.Parser{}
+	p.Reset(data)
+	tables := map[string]int{} // arrays of tables: elements so far
+	// resolve turns a dotted key into the path of its parent and its last
+	// key, entering the last element of each array of tables on the way, as
+	// TOML does.
+	resolve := func(base string, it unstable.Iterator) (parent string, last *unstable.Node) {
+		path := base
+		for it.Next() {
+			k := it.Node()
+			last = k
+			if it.IsLast() {
+				return path, last
+			}
+			seg := strings.ToLower(string(k.Data))
+			if path != "" {
+				path += "." + seg
+			} else {
+				path = seg
+			}
+			if n, ok := tables[path]; ok {
+				path = index(path, n-1)
+			}
+		}
+		return path, last
+	}
+	key := func(parent string, k *unstable.Node) string {
+		at := p.Shape(k.Raw).Start
+		return d.key(parent, string(k.Data), at.Line, at.Column)
+	}
+	var value func(v *unstable.Node, path string)
+	value = func(v *unstable.Node, path string) {
+		switch v.Kind {
+		case unstable.InlineTable:
+			for it := v.Children(); it.Next(); {
+				kv := it.Node()
+				parent, k := resolve(path, kv.Key())
+				value(kv.Value(), key(parent, k))
+			}
+		case unstable.Array:
+			i := 0
+			for it := v.Children(); it.Next(); i++ {
+				value(it.Node(), index(path, i))
+			}
+		}
+	}
+	current := ""
+	for p.NextExpression() {
+		e := p.Expression()
+		switch e.Kind {
+		case unstable.Table:
+			parent, k := resolve("", e.Key())
+			current = key(parent, k)
+		case unstable.ArrayTable:
+			parent, k := resolve("", e.Key())
+			path := strings.ToLower(string(k.Data))
+			if parent != "" {
+				path = parent + "." + path
+			}
+			tables[path]++
+			current = index(path, tables[path]-1)
+		case unstable.KeyValue:
+			parent, k := resolve(current, e.Key())
+			value(e.Value(), key(parent, k))
+		}
+	}
+}

@@ -1,0 +1,69 @@
+package config
+
+import (
+	"strings"
+	"testing"
+)
+
+// A key written twice in one mapping, in any case, is refused with both
+// places; the decoders would silently keep the last one.
+func TestDuplicateKeysRefused(t *testing.T) {
+	const feeds = "feeds:\n  - id: f\n    site: a\n    kinds: [sunrise]\n"
+	for _, tc := range []struct {
+		name, format, doc, path, first, second string
+	}{
+		{"json same key", "json", `{"sites":[{"id":"a","latitude":47.5,
+"latitude":10,"longitude":9.7,"timezone":"UTC"}],"feeds":[{"id":"f","site":"a","kinds":["sunrise"]}]}`,
+			"sites[0].latitude", `line 1, column 21 ("latitude")`, `line 2, column 1 ("latitude")`},
+		{"json other case", "json", `{"Service":{"listen":":8080"},"service":{"listen":":9090"},"sites":[{"id":"a","latitude":1,"longitude":2}],"feeds":[{"id":"f","site":"a","kinds":["sunrise"]}]}`,
+			"service", `line 1, column 2 ("Service")`, `line 1, column 31 ("service")`},
+		{"yaml other case", "yaml", "sites:\n  - id: a\n    latitude: 47.5\n    longitude: 9.7\n    Latitude: 10\n" + feeds,
+			"sites[0].latitude", `line 3, column 5 ("latitude")`, `line 5, column 5 ("Latitude")`},
+		{"yaml same key", "yaml", "sites:\n  - id: a\n    latitude: 47.5\n    longitude: 9.7\n    latitude: 10\n" + feeds,
+			"sites[0].latitude", `line 3, column 5 ("latitude")`, `line 5, column 5 ("latitude")`},
+		{"yaml second item", "yaml", "sites:\n  - {id: a, latitude: 1, longitude: 2}\n  - id: b\n    latitude: 1\n    longitude: 2\n    ID: c\n" + feeds,
+			"sites[1].id", `line 3, column 5 ("id")`, `line 6, column 5 ("ID")`},
+		{"toml other case", "toml", "[[sites]]\nid = \"a\"\nlatitude = 47.5\nlongitude = 9.7\nLatitude = 10\n[[feeds]]\nid = \"f\"\nsite = \"a\"\nkinds = [\"sunrise\"]\n",
+			"sites[0].latitude", `line 3, column 1 ("latitude")`, `line 5, column 1 ("Latitude")`},
+		{"toml second table", "toml", "[[sites]]\nid = \"a\"\nlatitude = 1\nlongitude = 2\n[[sites]]\nid = \"b\"\nlatitude = 1\nLONGITUDE = 2\nlongitude = 3\n[[feeds]]\nid = \"f\"\nsite = \"a\"\nkinds = [\"sunrise\"]\n",
+			"sites[1].longitude", `line 8, column 1 ("LONGITUDE")`, `line 9, column 1 ("longitude")`},
+		{"toml table headers", "toml", "[service]\nlisten = \":8080\"\n[Service]\nout_dir = \"x\"\n[[sites]]\nid = \"a\"\nlatitude = 1\nlongitude = 2\n",
+			"service", `line 1, column 2 ("service")`, `line 3, column 2 ("Service")`},
+		{"toml inline table", "toml", "[[sites]]\nid = \"a\"\nlatitude = 1\nlongitude = 2\n[[feeds]]\nid = \"f\"\nsite = \"a\"\nkinds = [{kind = \"sunrise\", Kind = \"sunset\"}]\n",
+			"feeds[0].kinds[0].kind", `line 8, column 11 ("kind")`, `line 8, column 29 ("Kind")`},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			_, err := Parse(strings.NewReader(tc.doc), tc.format)
+			ps := problemsOf(t, err)
+			if len(ps) != 1 {
+				t.Fatalf("%d problems, want 1: %v", len(ps), err)
+			}
+			p := ps[0]
+			if p.Path != tc.path || !strings.Contains(p.Msg, "duplicate key") || !strings.Contains(p.Msg, tc.first) || !strings.Contains(p.Msg, tc.second) {
+				t.Errorf("got %v\nwant %s: duplicate key at %s and %s", p, tc.path, tc.first, tc.second)
+			}
+		})
+	}
+}
+
+// The same key in different mappings is no duplicate: every site has an id.
+func TestDuplicateKeysOnlyWithinOneMapping(t *testing.T) {
+	for _, format := range []string{"yaml", "json", "toml"} {
+		if dups := duplicateKeys(demoIn(t, format), format); len(dups) != 0 {
+			t.Errorf("%s: %v", format, dups)
+		}
+	}
+}
+
+func demoIn(t *testing.T, format string) []byte {
+	t.Helper()
+	switch format {
+	case "yaml":
+		return DemoYAML()
+	case "json":
+		return []byte(`{"sites":[{"id":"a","latitude":1,"longitude":2},{"id":"b","latitude":1,"longitude":2}],
+"feeds":[{"id":"f","site":"a","kinds":["sunrise",{"kind":"sunset","offset":"-30m"}]},{"id":"g","site":"b","kinds":[{"kind":"sunset"}]}]}`)
+	}
+	return []byte("[service]\nlisten = \":8080\"\n[[sites]]\nid = \"a\"\nlatitude = 1\nlongitude = 2\n[[sites]]\nid = \"b\"\nlatitude = 1\nlongitude = 2\n" +
+		"[[feeds]]\nid = \"f\"\nsite = \"a\"\n[[feeds.kinds]]\nkind = \"sunrise\"\n[[feeds.kinds]]\nkind = \"sunset\"\n[[feeds]]\nid = \"g\"\nsite = \"b\"\n[[feeds.kinds]]\nkind = \"sunrise\"\n")
+}

@@ -14,10 +14,10 @@ package astro
 //	umbra      ρu = (1 + 1/85) π1 − ss + πs
 //	penumbra   ρp = (1 + 1/85) π1 + ss + πs
 //
-// Chauvenet's older convention (the Astronomical Almanac's for a long time)
-// enlarges the whole radius by 1/50 instead: a umbra about 20″ wider, an
-// umbral magnitude about 0.01 larger and contacts up to a minute earlier
-// (U1, P1) or later (U4, P4). The Moon's semidiameter is
+// Chauvenet's older convention (long the Astronomical Almanac's) enlarges
+// the whole radius by 1/50 instead, ρ = 1.02 (π1 ∓ ss + πs): an umbra about
+// 9″ and a penumbra about 45″ wider, which moves the umbral contacts by some
+// 20 s and the penumbral ones by over a minute. The Moon's semidiameter is
 // asin(0.2724880 sin πm), the Moon's mean radius of the lunar-eclipse canon.
 //
 // With D the angular distance of the Moon's centre from the shadow's
@@ -70,6 +70,9 @@ type LunarEclipse struct {
 	// umbral magnitude: the Moon misses the umbra by that much).
 	UmbralMagnitude, PenumbralMagnitude float64
 	s                                   *chebSet
+	// the Moon's series (leMoonRA..leGAST) at P1, U1, U2, Max, U3, U4, P4,
+	// evaluated once for every site
+	atContact [7][leLocal]float64
 }
 
 // lunarAt holds the geometry at one instant, radians.
@@ -155,13 +158,24 @@ func LunarEclipses(from, to time.Time) ([]*LunarEclipse, error) {
 			if fm >= 0 {
 				return time.Time{}, time.Time{}
 			}
-			t1 := rootIllinois(f, tm, fm, a, f(a), 0.001)
-			t2 := rootIllinois(f, tm, fm, b, f(b), 0.001)
-			return secToTime(t1), secToTime(t2)
+			root := func(end float64) time.Time {
+				fe := f(end)
+				if fe <= 0 { // not reached within the window (never seen: it has hours to spare)
+					return secToTime(end)
+				}
+				return secToTime(rootIllinois(f, tm, fm, end, fe, 0.001))
+			}
+			return root(a), root(b)
 		}
 		e.P1, e.P4 = pair(func(x lunarAt) float64 { return x.rp + x.sm })
 		e.U1, e.U4 = pair(func(x lunarAt) float64 { return x.ru + x.sm })
 		e.U2, e.U3 = pair(func(x lunarAt) float64 { return x.ru - x.sm })
+		for i, t := range []time.Time{e.P1, e.U1, e.U2, e.Max, e.U3, e.U4, e.P4} {
+			if !t.IsZero() {
+				e.s.evalN(unixSeconds(t), v[:], leLocal)
+				copy(e.atContact[i][:], v[:leLocal])
+			}
+		}
 		switch {
 		case !e.U2.IsZero():
 			e.Type = Total
@@ -197,34 +211,36 @@ func (l *LocalLunarEclipse) Visible() bool {
 // observer must be valid (Observer.Validate).
 func (e *LunarEclipse) Local(o Observer) LocalLunarEclipse {
 	st := newSite(o)
-	var v [leCount]float64
-	// altitude of the Moon's centre above its rise/set altitude (radians)
-	// and the Moon's altitude and azimuth
-	moon := func(sec float64) (above, alt, az float64) {
-		e.s.evalN(sec, v[:], leLocal)
-		H := v[leGAST] + st.lon - v[leMoonRA]
-		dist := v[leMoonDist] / earthRadiusKm
-		alt = math.Asin(st.sinAltitudeFrom(H, v[leMoonDec], dist))
-		_, az = altAz(H, v[leMoonDec], st.sinLat, st.cosLat)
-		h0 := moonRiseSetAltitude(o, math.Asin(moonRadiusKm/v[leMoonDist]))
-		return alt - h0, alt, az
+	// The Moon's rise/set altitude for its distance at maximum: its
+	// semidiameter changes by well under 1″ during an eclipse.
+	sinH0 := math.Sin(moonRiseSetAltitude(o, math.Asin(moonRadiusKm/e.atContact[3][leMoonDist])))
+	sinAlt := func(v []float64) (s, H float64) {
+		H = v[leGAST] + st.lon - v[leMoonRA]
+		return st.sinAltitudeFrom(H, v[leMoonDec], v[leMoonDist]/earthRadiusKm), H
 	}
-	contact := func(t time.Time) Contact {
+	contact := func(i int, t time.Time) Contact {
 		if t.IsZero() {
 			return Contact{}
 		}
-		above, alt, az := moon(unixSeconds(t))
-		return Contact{Time: t, Altitude: alt * rad2deg, Azimuth: az * rad2deg, Up: above > 0}
+		v := e.atContact[i][:]
+		s, H := sinAlt(v)
+		_, az := altAz(H, v[leMoonDec], st.sinLat, st.cosLat)
+		return Contact{Time: t, Altitude: math.Asin(s) * rad2deg, Azimuth: az * rad2deg, Up: s > sinH0}
 	}
 	l := LocalLunarEclipse{Eclipse: e,
-		P1: contact(e.P1), U1: contact(e.U1), U2: contact(e.U2), Max: contact(e.Max),
-		U3: contact(e.U3), U4: contact(e.U4), P4: contact(e.P4)}
+		P1: contact(0, e.P1), U1: contact(1, e.U1), U2: contact(2, e.U2), Max: contact(3, e.Max),
+		U3: contact(4, e.U3), U4: contact(5, e.U4), P4: contact(6, e.P4)}
+	var v [leCount]float64
 	hourAngle := func(sec float64) float64 {
 		e.s.evalN(sec, v[:], leLocal)
 		return v[leGAST] + st.lon - v[leMoonRA]
 	}
-	ts, up := crossingsOf(func(sec float64) float64 { a, _, _ := moon(sec); return a }, hourAngle,
-		siderealRate-moonMeanMotion/secondsPerDay, unixSeconds(e.P1), unixSeconds(e.P4))
+	above := func(sec float64) float64 {
+		e.s.evalN(sec, v[:], leLocal)
+		s, _ := sinAlt(v[:])
+		return s - sinH0
+	}
+	ts, up := crossingsOf(above, hourAngle, siderealRate-moonMeanMotion/secondsPerDay, unixSeconds(e.P1), unixSeconds(e.P4))
 	for i, t := range ts {
 		g := e.at(t, v[:])
 		dir := Setting

@@ -344,7 +344,11 @@ func (e *SolarEclipse) Local(o Observer) (LocalSolarEclipse, bool) {
 	outer := func(sec float64) float64 { s := at(sec); return math.Hypot(s.u, s.v) - s.l1 }
 	inner := func(sec float64) float64 { s := at(sec); return math.Hypot(s.u, s.v) - math.Abs(s.l2) }
 	solve := func(f func(float64) float64, end float64) float64 {
-		return rootIllinois(f, tm, f(tm), end, f(end), 0.005)
+		fe := f(end)
+		if fe <= 0 { // not reached within the window (never seen: the window has hours to spare)
+			return end
+		}
+		return rootIllinois(f, tm, f(tm), end, fe, 0.005)
 	}
 	l := LocalSolarEclipse{Eclipse: e, Type: Partial}
 	c1, c4 := solve(outer, a), solve(outer, b)

@@ -208,3 +208,42 @@ func TestEclipseRange(t *testing.T) {
 		t.Errorf("lunar eclipses of 2200: %v, %v", es, err)
 	}
 }
+
+// TestEclipseWindowMargin checks that every contact lies well inside the
+// twelve hours fitted around its syzygy (at least an hour from either end),
+// near both ends of the supported range and today, for lunar eclipses and
+// for the solar eclipses at 200 sites spread over the Earth.
+func TestEclipseWindowMargin(t *testing.T) {
+	sites := benchSites(200)
+	for _, span := range [][2]string{{"1800-01-02T00:00:00Z", "1804-01-01T00:00:00Z"},
+		{"2026-01-01T00:00:00Z", "2030-01-01T00:00:00Z"}, {"2197-01-01T00:00:00Z", "2200-12-30T00:00:00Z"}} {
+		from, to := utc(span[0]), utc(span[1])
+		ls, err := LunarEclipses(from, to)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, e := range ls {
+			if a, b := unixSeconds(e.P1)-e.s.a, e.s.b-unixSeconds(e.P4); a < 3600 || b < 3600 {
+				t.Errorf("lunar %s: P1 %.0f s, P4 %.0f s from the window's ends", e.Max, a, b)
+			}
+		}
+		ss, err := SolarEclipses(from, to)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(ss) < 8 || len(ls) < 8 {
+			t.Errorf("%s: %d solar and %d lunar eclipses", span[0], len(ss), len(ls))
+		}
+		for _, e := range ss {
+			for _, o := range sites {
+				l, ok := e.Local(o)
+				if !ok {
+					continue
+				}
+				if a, b := unixSeconds(l.C1.Time)-e.el.a, e.el.b-unixSeconds(l.C4.Time); a < 3600 || b < 3600 {
+					t.Errorf("solar %s at %+v: C1 %.0f s, C4 %.0f s from the window's ends", e.Greatest, o, a, b)
+				}
+			}
+		}
+	}
+}

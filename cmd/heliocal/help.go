@@ -134,7 +134,7 @@ func fill(words []string, width int, first, rest string) []string {
 func kindsHelp() string {
 	families := []struct{ id, label string }{
 		{config.FamilySun, "Sun:"}, {config.FamilyTwilight, "Twilight:"},
-		{config.FamilyYear, "Year:"}, {config.FamilyMoon, "Moon:"},
+		{config.FamilyYear, "Year:"}, {config.FamilyMoon, "Moon:"}, {config.FamilyEclipse, "Eclipses:"},
 	}
 	rows := map[string][]string{}
 	var other []string

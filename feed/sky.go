@@ -33,6 +33,7 @@ type Event struct {
 	DayLength    time.Duration // sunrise/sunset/photoperiod: time the Sun is up on Date
 	DayChange    time.Duration // DayLength minus the previous date's
 	SeasonLength time.Duration // seasons: time until the next season starts
+	Azimuth      float64       // sunrise/sunset/moonrise/moonset: direction, degrees from north through east
 	Illuminated  float64       // Moon events: illuminated fraction 0..1
 	Waxing       bool          // Moon events: the Moon is waxing
 	Lamp         time.Duration // lighting: length of the lamp period
@@ -396,6 +397,9 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 			e := Event{Kind: k, Start: x.Time, Direction: x.Direction, Date: d}
 			if horizon {
 				e.DayLength, e.DayChange = c.lengths[i+1], c.lengths[i+1]-c.lengths[i]
+				if e.Azimuth, err = c.sky.eph.SunAzimuth(c.p.Observer, x.Time); err != nil {
+					return err
+				}
 			}
 			c.events = append(c.events, e)
 		}

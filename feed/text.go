@@ -192,7 +192,7 @@ func describe(s *siteInfo, e Event) (string, string) {
 	title := plainNames[e.Kind.Name]
 	switch e.Kind.Name {
 	case "sunrise", "sunset":
-		b.WriteString(title + " at " + at + ".\n")
+		b.WriteString(title + " at " + at + ": the Sun " + bearing(e) + ".\n")
 		b.WriteString("Day length " + hm(e.DayLength) + " (" + change(e.DayChange) + " on the day before).\n")
 		b.WriteString("Upper limb of the Sun on the horizon with standard refraction.\n")
 		b.WriteString(cautionLegal)
@@ -293,6 +293,16 @@ func roughly(d time.Duration) string {
 		return fmt.Sprintf("%d min", m)
 	}
 	return fmt.Sprintf("%d min %d s", m, sec)
+}
+
+// bearing says where a body rises or sets, in degrees from the north
+// through the east and in words: "rises at 118°, east-south-east".
+func bearing(e Event) string {
+	verb := "sets"
+	if e.Direction == astro.Rising {
+		verb = "rises"
+	}
+	return fmt.Sprintf("%s at %.0f°, %s", verb, math.Round(e.Azimuth)-360*math.Floor(math.Round(e.Azimuth)/360), astro.CompassPoint(e.Azimuth))
 }
 
 var crossQuarterBetween = map[string]string{

@@ -8,6 +8,7 @@ import (
 	"io"
 	"math"
 	"sort"
+	"strconv"
 	"strings"
 	"text/tabwriter"
 	"time"
@@ -294,6 +295,7 @@ type jsonEvent struct {
 	Altitude  *float64 `json:"altitude_deg,omitempty"`
 	Distance  *float64 `json:"distance_au,omitempty"`
 	DayLength *float64 `json:"day_length_s,omitempty"`
+	Azimuth   *float64 `json:"azimuth_deg,omitempty"`
 	Lit       *float64 `json:"illuminated,omitempty"`
 	// Uncertainty is set on far-future seasons, apsides and phases.
 	Uncertainty *float64 `json:"uncertainty_s,omitempty"`
@@ -337,6 +339,10 @@ func toJSONEvent(e feed.Event) jsonEvent {
 		r := e.Distance
 		j.Distance = &r
 	}
+	if hasAzimuth(e) {
+		a := math.Round(e.Azimuth*100) / 100
+		j.Azimuth = &a
+	}
 	switch e.Kind.Name {
 	case "march-equinox", "june-solstice", "september-equinox", "december-solstice", "cross-quarter",
 		"perihelion", "aphelion", "new-moon", "first-quarter", "full-moon", "last-quarter":
@@ -360,6 +366,24 @@ func toJSONEvent(e feed.Event) jsonEvent {
 		j.Lit = &f
 	}
 	return j
+}
+
+// hasAzimuth reports whether the event carries the direction of the body:
+// sunrise, sunset, moonrise and moonset.
+func hasAzimuth(e feed.Event) bool {
+	switch e.Kind.Name {
+	case "sunrise", "sunset", "moonrise", "moonset":
+		return true
+	}
+	return false
+}
+
+// azimuthCell is the CSV cell of the azimuth, empty where it does not apply.
+func azimuthCell(e feed.Event) string {
+	if !hasAzimuth(e) {
+		return ""
+	}
+	return strconv.FormatFloat(math.Round(e.Azimuth*100)/100, 'f', 2, 64)
 }
 
 func dirName(d astro.Direction) string {
@@ -391,10 +415,10 @@ func writeEventsJSON(w io.Writer, s *config.Site, from, to time.Time, events []f
 func writeEventsCSV(w io.Writer, s *config.Site, events []feed.Event, notes []feed.Note) error {
 	loc := s.TimeZone.Location
 	cw := csv.NewWriter(w)
-	_ = cw.Write([]string{"date", "kind", "start_utc", "end_utc", "direction", "start_local", "end_local", "state"})
+	_ = cw.Write([]string{"date", "kind", "start_utc", "end_utc", "direction", "start_local", "end_local", "state", "azimuth_deg"})
 	for _, r := range mergeRows(events, notes) {
 		if r.note != nil {
-			_ = cw.Write([]string{r.note.Date.Format(time.DateOnly), r.note.Kind.String(), "", "", "", "", "", stateName(r.note.State)})
+			_ = cw.Write([]string{r.note.Date.Format(time.DateOnly), r.note.Kind.String(), "", "", "", "", "", stateName(r.note.State), ""})
 			continue
 		}
 		e := r.event
@@ -403,7 +427,7 @@ func writeEventsCSV(w io.Writer, s *config.Site, events []feed.Event, notes []fe
 			end, endLocal = e.End.UTC().Format(jsonTime), e.End.In(loc).Format(time.RFC3339)
 		}
 		_ = cw.Write([]string{e.Date.Format(time.DateOnly), e.Kind.String(), e.Start.UTC().Format(jsonTime), end,
-			dirName(e.Direction), e.Start.In(loc).Format(time.RFC3339), endLocal, ""})
+			dirName(e.Direction), e.Start.In(loc).Format(time.RFC3339), endLocal, "", azimuthCell(*e)})
 	}
 	cw.Flush()
 	return cw.Error()
@@ -492,6 +516,11 @@ func details(e *feed.Event, loc *time.Location) string {
 	switch e.Kind.Name {
 	case "sunrise", "sunset", "photoperiod":
 		parts = append(parts, "day length "+words(e.DayLength.Round(time.Second)))
+	}
+	if hasAzimuth(*e) {
+		parts = append(parts, fmt.Sprintf("azimuth %.1f° (%s)", e.Azimuth, astro.CompassPoint(e.Azimuth)))
+	}
+	switch e.Kind.Name {
 	case "solar-noon", "moon-transit":
 		parts = append(parts, fmt.Sprintf("altitude %.2f°", e.Altitude))
 	case "perihelion", "aphelion":

@@ -107,6 +107,61 @@ func TestEventsJSON(t *testing.T) {
 	}
 }
 
+// Sunrise, sunset, moonrise and moonset carry their direction in JSON
+// (azimuth_deg, from the north through the east) and CSV. At 48.2° N on the
+// June solstice the Sun rises at 52.2° and sets at 307.8°: the spherical
+// triangle cos A = (sin δ − sin h sin φ) / (cos h cos φ) with δ = 23.44°
+// (the solstice declination: the obliquity, IAU value), h = −0.833°
+// (Meeus ch. 13 and 15).
+func TestEventsAzimuth(t *testing.T) {
+	args := []string{"events", "--lat", "48.2", "--lon", "16.4", "--tz", "Europe/Vienna",
+		"--from", "2027-06-21", "--to", "2027-06-21", "--kinds", "sunrise,sunset,moonrise,moonset,solar-noon"}
+	code, out, errOut := runCLI(t, append(args, "--format", "json")...)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	var doc struct {
+		Events []struct {
+			Kind    string
+			Azimuth *float64 `json:"azimuth_deg"`
+		}
+	}
+	if err := json.Unmarshal([]byte(out), &doc); err != nil {
+		t.Fatal(err)
+	}
+	want := map[string]float64{"sunrise": 52.2, "sunset": 307.8}
+	seen := 0
+	for _, e := range doc.Events {
+		switch {
+		case e.Kind == "solar-noon":
+			if e.Azimuth != nil {
+				t.Errorf("solar-noon has an azimuth")
+			}
+		case e.Azimuth == nil:
+			t.Errorf("%s without azimuth_deg", e.Kind)
+		case e.Kind == "moonrise" && !(*e.Azimuth > 0 && *e.Azimuth < 180), e.Kind == "moonset" && !(*e.Azimuth > 180 && *e.Azimuth < 360):
+			t.Errorf("%s at azimuth %.2f°", e.Kind, *e.Azimuth)
+		default:
+			if w, ok := want[e.Kind]; ok {
+				seen++
+				if d := *e.Azimuth - w; d > 0.1 || d < -0.1 {
+					t.Errorf("%s at azimuth %.2f°, want %.1f°", e.Kind, *e.Azimuth, w)
+				}
+			}
+		}
+	}
+	if seen != 2 {
+		t.Errorf("%d of sunrise and sunset found", seen)
+	}
+	code, out, errOut = runCLI(t, append(args, "--format", "csv")...)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	if !strings.Contains(out, "azimuth_deg\n") || !strings.Contains(out, ",52.19\n") {
+		t.Errorf("CSV without the azimuth column or the sunrise azimuth 52.19:\n%s", out)
+	}
+}
+
 // Exit codes: 2 for bad input, each message naming the flag or field and
 // the value.
 func TestEventsBadInput(t *testing.T) {

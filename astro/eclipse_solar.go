@@ -166,9 +166,8 @@ func SolarEclipses(from, to time.Time) ([]*SolarEclipse, error) {
 	var out []*SolarEclipse
 	var tmp [beCount]float64
 	for _, t0 := range nm {
-		mu0 := 0.0
 		besselian(t0, 0, tmp[:])
-		mu0 = tmp[beMu]
+		mu0 := tmp[beMu]
 		a, b := t0-eclipseHalfWindow, t0+eclipseHalfWindow
 		el := fitCheb(a, b, beCount, func(sec float64, out []float64) {
 			besselian(sec, mu0+siderealRate*(sec-t0), out)

@@ -89,12 +89,7 @@ func TestEclipsesSwissEphemeris(t *testing.T) {
 		id := r["site"] + " " + r["kind"] + " " + max.Format(time.DateOnly)
 		listed[r["site"]] = append(listed[r["site"]], r["kind"]+" "+max.Format(time.DateOnly))
 		if r["kind"] == "solar" {
-			var e *SolarEclipse
-			for _, x := range se {
-				if math.Abs(x.Greatest.Sub(max).Hours()) < 6 {
-					e = x
-				}
-			}
+			e := within6h(se, max, func(x *SolarEclipse) time.Time { return x.Greatest })
 			if e == nil {
 				t.Errorf("%s: no such eclipse found", id)
 				continue
@@ -129,12 +124,7 @@ func TestEclipsesSwissEphemeris(t *testing.T) {
 			}
 			continue
 		}
-		var e *LunarEclipse
-		for _, x := range le {
-			if math.Abs(x.Max.Sub(max).Hours()) < 6 {
-				e = x
-			}
-		}
+		e := within6h(le, max, func(x *LunarEclipse) time.Time { return x.Max })
 		if e == nil {
 			t.Errorf("%s: no such eclipse found", id)
 			continue
@@ -196,6 +186,17 @@ func TestEclipsesSwissEphemeris(t *testing.T) {
 			}
 		}
 	}
+}
+
+// within6h returns the eclipse whose greatest phase (at) is within six hours
+// of t, or nil.
+func within6h[E *SolarEclipse | *LunarEclipse](es []E, t time.Time, at func(E) time.Time) E {
+	for _, e := range es {
+		if math.Abs(at(e).Sub(t).Hours()) < 6 {
+			return e
+		}
+	}
+	return nil
 }
 
 // upFor returns how long the body is above the horizon between the first

@@ -105,10 +105,14 @@ func share(f float64) string {
 }
 
 // bodyPlace describes a body's place at a contact: "Sun 23° high in the
-// southwest" or "Sun below the horizon".
+// southwest", "Sun on the horizon in the west" (up, but its centre less
+// than 1° high: refraction lifts it into sight) or "Sun below the horizon".
 func bodyPlace(body string, c astro.Contact) string {
-	if !c.Up {
+	switch {
+	case !c.Up:
 		return body + " below the horizon"
+	case c.Altitude < 1:
+		return fmt.Sprintf("%s on the horizon in the %s (azimuth %.0f°)", body, compass(c.Azimuth), c.Azimuth)
 	}
 	return fmt.Sprintf("%s %s high in the %s (azimuth %.0f°)", body, degreesWhole(c.Altitude), compass(c.Azimuth), c.Azimuth)
 }

@@ -101,6 +101,7 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 		Build:             serveBuild(cfg, base),
 		Adhoc:             adhocFeed(l, refreshInterval(cfg, time.Now())),
 		AdhocDefaultKinds: []string{"sunrise", "sunset", "civil-dawn", "civil-dusk"},
+		AdhocMaxBytes:     cfg.Service.MaxFeedBytes,
 		Schedule:          cfg.Service.Refresh,
 		ScheduleZone:      cfg.Service.RefreshZone.Location,
 	})

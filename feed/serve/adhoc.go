@@ -134,15 +134,39 @@ type adhocLimits struct {
 }
 
 // parseAdhoc validates and normalises a raw query string. now fixes "today"
-// when start is absent.
+// when start is absent. Each step refuses its parameter with a QueryError.
 func parseAdhoc(raw string, now time.Time, lim *adhocLimits) (AdhocQuery, error) {
 	var q AdhocQuery
+	get, err := adhocValues(raw)
+	if err != nil {
+		return q, err
+	}
+	for _, step := range []func() error{
+		func() error { return q.parsePlace(get) },
+		func() error { return q.parseZone(get, lim) },
+		func() error { return q.parseKinds(get, lim) },
+		func() error { return q.parseWindow(get, now, lim) },
+		func() error { return q.parseUTC(get) },
+	} {
+		if err := step(); err != nil {
+			return q, err
+		}
+	}
+	return q, nil
+}
+
+// getter returns a parameter's value and whether it was given.
+type getter func(name string) (string, bool)
+
+// adhocValues parses the query string, refusing one that is too long,
+// malformed, or has an unknown or repeated parameter.
+func adhocValues(raw string) (getter, error) {
 	if len(raw) > maxQueryLength {
-		return q, &QueryError{Msg: fmt.Sprintf("query string longer than %d bytes", maxQueryLength)}
+		return nil, &QueryError{Msg: fmt.Sprintf("query string longer than %d bytes", maxQueryLength)}
 	}
 	vals, err := url.ParseQuery(raw)
 	if err != nil {
-		return q, &QueryError{Msg: "malformed query string: " + quoteValue(raw)}
+		return nil, &QueryError{Msg: "malformed query string: " + quoteValue(raw)}
 	}
 	keys := make([]string, 0, len(vals))
 	for k := range vals {
@@ -151,104 +175,125 @@ func parseAdhoc(raw string, now time.Time, lim *adhocLimits) (AdhocQuery, error)
 	slices.Sort(keys)
 	for _, k := range keys {
 		if !slices.Contains(adhocParams, k) {
-			return q, &QueryError{Param: k, Value: vals.Get(k),
+			return nil, &QueryError{Param: k, Value: vals.Get(k),
 				Msg: "unknown parameter (known: " + strings.Join(adhocParams, ", ") + ")"}
 		}
 		if len(vals[k]) > 1 {
-			return q, &QueryError{Param: k, Value: strings.Join(vals[k], ","), Msg: "given more than once"}
+			return nil, &QueryError{Param: k, Value: strings.Join(vals[k], ","), Msg: "given more than once"}
 		}
 	}
-	get := func(name string) (string, bool) {
+	return func(name string) (string, bool) {
 		v, ok := vals[name]
 		if !ok {
 			return "", false
 		}
 		return v[0], true
-	}
+	}, nil
+}
 
+// parsePlace reads lat, lon and elev.
+func (q *AdhocQuery) parsePlace(get getter) error {
+	var err error
 	if q.Latitude, err = parseCoord(get, ParamLatitude, 90); err != nil {
-		return q, err
+		return err
 	}
 	if q.Longitude, err = parseCoord(get, ParamLongitude, 180); err != nil {
-		return q, err
+		return err
 	}
 	if q.Longitude == -180 {
 		q.Longitude = 180 // the same meridian, one spelling
 	}
-
 	if v, ok := get(ParamElevation); ok {
 		e, err := parseFloat(ParamElevation, v)
 		if err != nil {
-			return q, err
+			return err
 		}
 		if e < minElevation || e > maxElevation {
-			return q, &QueryError{Param: ParamElevation, Value: v,
+			return &QueryError{Param: ParamElevation, Value: v,
 				Msg: fmt.Sprintf("must be within %g..%g metres", minElevation, maxElevation)}
 		}
 		q.Elevation = math.Round(e) + 0 // + 0 turns −0 into 0
 	}
+	return nil
+}
 
+// parseZone reads tz (required).
+func (q *AdhocQuery) parseZone(get getter, lim *adhocLimits) error {
 	tz, ok := get(ParamZone)
 	if !ok {
-		return q, &QueryError{Param: ParamZone, Msg: "required: an IANA time zone name such as Europe/Vienna"}
+		return &QueryError{Param: ParamZone, Msg: "required: an IANA time zone name such as Europe/Vienna"}
 	}
+	var err error
 	if q.Location, err = lim.zones.load(tz); err != nil {
-		return q, &QueryError{Param: ParamZone, Value: tz, Msg: "unknown time zone (use an IANA name such as Europe/Vienna)"}
+		return &QueryError{Param: ParamZone, Value: tz, Msg: "unknown time zone (use an IANA name such as Europe/Vienna)"}
 	}
+	return nil
+}
 
-	if v, ok := get(ParamKinds); ok {
-		if q.Kinds, err = parseKinds(v, lim.parseKind); err != nil {
-			return q, err
-		}
-	} else if len(lim.defaultKinds) > 0 {
+// parseKinds reads kinds, or takes the default ones.
+func (q *AdhocQuery) parseKinds(get getter, lim *adhocLimits) error {
+	v, ok := get(ParamKinds)
+	switch {
+	case ok:
+		var err error
+		q.Kinds, err = parseKinds(v, lim.parseKind)
+		return err
+	case len(lim.defaultKinds) > 0:
 		q.Kinds = lim.defaultKinds
-	} else {
-		return q, &QueryError{Param: ParamKinds, Msg: "required: a comma-separated list of event kinds"}
+		return nil
 	}
+	return &QueryError{Param: ParamKinds, Msg: "required: a comma-separated list of event kinds"}
+}
 
+// parseWindow reads days and start, and checks that the window lies within
+// the supported years.
+func (q *AdhocQuery) parseWindow(get getter, now time.Time, lim *adhocLimits) error {
 	q.Days = lim.defaultDays
 	if v, ok := get(ParamDays); ok {
 		d, err := strconv.Atoi(v)
 		if err != nil {
-			return q, &QueryError{Param: ParamDays, Value: v, Msg: "not a whole number"}
+			return &QueryError{Param: ParamDays, Value: v, Msg: "not a whole number"}
 		}
 		if d < 1 || d > lim.maxDays {
-			return q, &QueryError{Param: ParamDays, Value: v, Msg: fmt.Sprintf("must be within 1..%d", lim.maxDays)}
+			return &QueryError{Param: ParamDays, Value: v, Msg: fmt.Sprintf("must be within 1..%d", lim.maxDays)}
 		}
 		q.Days = d
 	}
-
-	if v, ok := get(ParamStart); ok {
+	v, ok := get(ParamStart)
+	if ok {
 		d, err := time.Parse(time.DateOnly, v)
 		if err != nil {
-			return q, &QueryError{Param: ParamStart, Value: v, Msg: "not a date of the form YYYY-MM-DD"}
+			return &QueryError{Param: ParamStart, Value: v, Msg: "not a date of the form YYYY-MM-DD"}
 		}
 		q.Start = d
 	} else {
 		y, m, d := now.In(q.Location).Date()
 		q.Start = time.Date(y, m, d, 0, 0, 0, 0, time.UTC)
+		v = q.Start.Format(time.DateOnly)
 	}
 	first := time.Date(lim.minYear, 1, 1, 0, 0, 0, 0, time.UTC)
 	last := time.Date(lim.maxYear, 12, 31, 0, 0, 0, 0, time.UTC)
 	if q.Start.Before(first) || q.Start.AddDate(0, 0, q.Days-1).After(last) {
-		v, _ := get(ParamStart)
-		if v == "" {
-			v = q.Start.Format(time.DateOnly)
-		}
-		return q, &QueryError{Param: ParamStart, Value: v,
+		return &QueryError{Param: ParamStart, Value: v,
 			Msg: fmt.Sprintf("the window must lie within %d-01-01..%d-12-31", lim.minYear, lim.maxYear)}
 	}
+	return nil
+}
 
-	if v, ok := get(ParamUTC); ok {
-		switch strings.ToLower(v) {
-		case "1", "true", "yes":
-			q.UTC = true
-		case "0", "false", "no":
-		default:
-			return q, &QueryError{Param: ParamUTC, Value: v, Msg: "must be true or false"}
-		}
+// parseUTC reads utc.
+func (q *AdhocQuery) parseUTC(get getter) error {
+	v, ok := get(ParamUTC)
+	if !ok {
+		return nil
 	}
-	return q, nil
+	switch strings.ToLower(v) {
+	case "1", "true", "yes":
+		q.UTC = true
+	case "0", "false", "no":
+	default:
+		return &QueryError{Param: ParamUTC, Value: v, Msg: "must be true or false"}
+	}
+	return nil
 }
 
 func parseFloat(name, v string) (float64, error) {
@@ -259,7 +304,7 @@ func parseFloat(name, v string) (float64, error) {
 	return f, nil
 }
 
-func parseCoord(get func(string) (string, bool), name string, limit float64) (float64, error) {
+func parseCoord(get getter, name string, limit float64) (float64, error) {
 	v, ok := get(name)
 	if !ok {
 		return 0, &QueryError{Param: name, Msg: fmt.Sprintf("required: decimal degrees within -%g..%g", limit, limit)}

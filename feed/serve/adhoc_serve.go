@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"net/http"
 	"runtime/debug"
+	"strconv"
 	"sync"
 	"time"
 )
@@ -30,8 +31,13 @@ func (s *Server) serveAdhoc(w http.ResponseWriter, r *http.Request) {
 		s.serveAsset(w, r, a)
 		return
 	}
+	if a := s.refused.get(key); a != nil {
+		s.metrics.adhocCache.WithLabelValues("hit").Inc()
+		plain(w, http.StatusBadRequest, string(a.data))
+		return
+	}
 	s.metrics.adhocCache.WithLabelValues("miss").Inc()
-	a, err := s.flights.do(r.Context(), key, func() (*asset, error) { return s.buildAdhoc(r.Context(), q) })
+	a, err := s.flights.do(r.Context(), key, func(ctx context.Context) (*asset, error) { return s.buildAdhoc(ctx, q) })
 	var qe *QueryError
 	switch {
 	case err == nil:
@@ -47,17 +53,18 @@ func (s *Server) serveAdhoc(w http.ResponseWriter, r *http.Request) {
 	}
 }
 
-// buildAdhoc runs Options.Adhoc for q, detached from the request that asked
-// first (others may be waiting on the same build) but bounded by
-// AdhocTimeout, and caches the result.
-func (s *Server) buildAdhoc(rctx context.Context, q AdhocQuery) (a *asset, err error) {
+// buildAdhoc runs Options.Adhoc for q with ctx, the build's context: it
+// ends when every request waiting for this build has gone (timed out,
+// cancelled, disconnected) and after AdhocTimeout, and Adhoc passes it down
+// to the per-date loops, so abandoned work stops. The result is cached.
+func (s *Server) buildAdhoc(ctx context.Context, q AdhocQuery) (a *asset, err error) {
 	select {
 	case s.adhocSem <- struct{}{}:
-	case <-rctx.Done():
+	case <-ctx.Done():
 		return nil, errAdhocBusy
 	}
 	defer func() { <-s.adhocSem }()
-	ctx, cancel := context.WithTimeout(context.WithoutCancel(rctx), s.opts.AdhocTimeout)
+	ctx, cancel := context.WithTimeout(ctx, s.opts.AdhocTimeout)
 	defer cancel()
 	defer func() {
 		if p := recover(); p != nil {
@@ -70,6 +77,11 @@ func (s *Server) buildAdhoc(rctx context.Context, q AdhocQuery) (a *asset, err e
 	s.metrics.adhocSeconds.Observe(time.Since(start).Seconds())
 	if err != nil {
 		return nil, err
+	}
+	if len(data) > s.opts.AdhocMaxBytes {
+		qe := tooLarge(q, len(data), s.opts.AdhocMaxBytes)
+		s.refused.put(q.String(), &asset{data: []byte(qe.Error())})
+		return nil, qe
 	}
 	a = newAsset(q.ID()+".ics", "", data, start.Truncate(time.Second), nil)
 	a.cors = true
@@ -160,28 +172,35 @@ type flight struct {
 	done    chan struct{}
 	a       *asset
 	err     error
-	waiters int // callers that asked for this key (guarded by flightGroup.mu)
+	waiters int                // callers still waiting (guarded by flightGroup.mu)
+	cancel  context.CancelFunc // ends the call's context
 }
 
-// do runs fn once per key at a time; a caller whose ctx ends stops waiting
-// (the call goes on for the others and for the cache).
-func (g *flightGroup) do(ctx context.Context, key string, fn func() (*asset, error)) (*asset, error) {
+// do runs fn once per key at a time, sharing its result among the callers
+// that ask for the key meanwhile. A caller whose ctx ends stops waiting;
+// when the last one has stopped, fn's context is cancelled (nobody wants
+// the result any more) and the key is free for a new call.
+func (g *flightGroup) do(ctx context.Context, key string, fn func(context.Context) (*asset, error)) (*asset, error) {
 	g.mu.Lock()
 	if g.m == nil {
 		g.m = make(map[string]*flight)
 	}
 	f, ok := g.m[key]
 	if !ok {
-		f = &flight{done: make(chan struct{})}
+		fctx, cancel := context.WithCancel(context.WithoutCancel(ctx))
+		f = &flight{done: make(chan struct{}), cancel: cancel}
 		g.m[key] = f
 		go func() {
 			defer func() {
 				g.mu.Lock()
-				delete(g.m, key)
+				if g.m[key] == f {
+					delete(g.m, key)
+				}
 				g.mu.Unlock()
+				cancel()
 				close(f.done)
 			}()
-			f.a, f.err = fn()
+			f.a, f.err = fn(fctx)
 		}()
 	}
 	f.waiters++
@@ -190,6 +209,33 @@ func (g *flightGroup) do(ctx context.Context, key string, fn func() (*asset, err
 	case <-f.done:
 		return f.a, f.err
 	case <-ctx.Done():
+		g.mu.Lock()
+		f.waiters--
+		if f.waiters == 0 {
+			f.cancel()
+			if g.m[key] == f {
+				delete(g.m, key)
+			}
+		}
+		g.mu.Unlock()
 		return nil, ctx.Err()
 	}
+}
+
+// tooLarge is the refusal of an ad-hoc feed of size bytes, over limit: it
+// states the limit and how to stay under it.
+func tooLarge(q AdhocQuery, size, limit int) *QueryError {
+	days := max(1, q.Days*limit/size*9/10) // the size is nearly proportional to the days
+	return &QueryError{Msg: fmt.Sprintf("the feed asked for is %s bytes, over the limit of %s bytes per ad-hoc feed "+
+		"(some calendar apps drop larger subscriptions); ask for fewer kinds or days (%s=%d should fit with these kinds)",
+		thousands(size), thousands(limit), ParamDays, days)}
+}
+
+// thousands writes n with commas between groups of three digits.
+func thousands(n int) string {
+	s := strconv.Itoa(n)
+	for i := len(s) - 3; i > 0; i -= 3 {
+		s = s[:i] + "," + s[i:]
+	}
+	return s
 }

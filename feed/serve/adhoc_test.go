@@ -312,3 +312,165 @@ func FuzzAdhocQuery(f *testing.F) {
 		}
 	})
 }
+
+// dateLoop is an ad-hoc builder that computes one date per tick, checking
+// its context before each date as the real per-date loops do, and reports
+// how many dates it computed and why it stopped.
+type dateLoop struct {
+	tick    chan struct{}
+	started chan struct{}
+	dates   atomic.Int32
+	stopped chan error
+}
+
+func newDateLoop() *dateLoop {
+	return &dateLoop{tick: make(chan struct{}), started: make(chan struct{}, 8), stopped: make(chan error, 8)}
+}
+
+func (d *dateLoop) build(ctx context.Context, q AdhocQuery) ([]byte, error) {
+	d.started <- struct{}{}
+	for range q.Days {
+		select {
+		case <-ctx.Done():
+			d.stopped <- ctx.Err()
+			return nil, ctx.Err()
+		case <-d.tick:
+			d.dates.Add(1)
+		}
+	}
+	d.stopped <- nil
+	return adhocICS(ctx, q)
+}
+
+// serveAsync runs one request whose context the caller can cancel.
+func serveAsync(h http.Handler, target string) (cancel func(), code <-chan int) {
+	ctx, cancel := context.WithCancel(context.Background())
+	ch := make(chan int, 1)
+	go func() {
+		w := httptest.NewRecorder()
+		h.ServeHTTP(w, httptest.NewRequest("GET", target, nil).WithContext(ctx))
+		ch <- w.Code
+	}()
+	return cancel, ch
+}
+
+// A cancelled or timed-out /at.ics request cancels its computation: the
+// per-date loop stops at the next date instead of computing the other 362.
+func TestAdhocCancelledRequestStopsWork(t *testing.T) {
+	loop := newDateLoop()
+	s, _ := newTestServer(t, Options{Adhoc: loop.build, AdhocTimeout: time.Hour})
+	s.now = func() time.Time { return today }
+	cancel, code := serveAsync(s.Handler(), "/at.ics?lat=10&lon=10&tz=UTC&kinds=sunrise&days=365")
+	<-loop.started
+	for range 3 {
+		loop.tick <- struct{}{}
+	}
+	cancel()
+	if err := <-loop.stopped; !errors.Is(err, context.Canceled) {
+		t.Errorf("the build stopped with %v, want context.Canceled", err)
+	}
+	if n := loop.dates.Load(); n != 3 {
+		t.Errorf("%d dates computed, want the 3 before the request was cancelled (of 365)", n)
+	}
+	if c := <-code; c != http.StatusServiceUnavailable {
+		t.Errorf("status %d", c)
+	}
+	// The key is free again: the next request builds afresh.
+	cancel, _ = serveAsync(s.Handler(), "/at.ics?lat=10&lon=10&tz=UTC&kinds=sunrise&days=365")
+	<-loop.started
+	cancel()
+	<-loop.stopped
+}
+
+// A build shared by two requests goes on while one of them still waits, and
+// stops when both have gone.
+func TestAdhocSharedBuildStopsWithTheLastRequest(t *testing.T) {
+	loop := newDateLoop()
+	s, _ := newTestServer(t, Options{Adhoc: loop.build, AdhocTimeout: time.Hour})
+	s.now = func() time.Time { return today }
+	const target = "/at.ics?lat=10&lon=10&tz=UTC&kinds=sunrise&days=3"
+	waiters := func(lat string) int {
+		key := "lat=" + lat + "&lon=10&elev=0&tz=UTC&kinds=sunrise&utc=false&start=2026-12-02&days=3"
+		s.flights.mu.Lock()
+		defer s.flights.mu.Unlock()
+		if f := s.flights.m[key]; f != nil {
+			return f.waiters
+		}
+		return 0
+	}
+	cancel1, code1 := serveAsync(s.Handler(), target)
+	<-loop.started
+	cancel2, code2 := serveAsync(s.Handler(), target)
+	for waiters("10") != 2 {
+		runtime.Gosched()
+	}
+	loop.tick <- struct{}{}
+	cancel1()
+	if c := <-code1; c != http.StatusServiceUnavailable {
+		t.Errorf("the cancelled request: status %d", c)
+	}
+	loop.tick <- struct{}{} // the build goes on for the other request
+	loop.tick <- struct{}{}
+	if err := <-loop.stopped; err != nil {
+		t.Errorf("the shared build stopped: %v", err)
+	}
+	if c := <-code2; c != http.StatusOK {
+		t.Errorf("the waiting request: status %d", c)
+	}
+	cancel2()
+
+	// Both requests gone: the build stops.
+	const other = "/at.ics?lat=11&lon=10&tz=UTC&kinds=sunrise&days=3"
+	cancel1, code1 = serveAsync(s.Handler(), other)
+	<-loop.started
+	cancel2, code2 = serveAsync(s.Handler(), other)
+	for waiters("11") != 2 {
+		runtime.Gosched()
+	}
+	cancel1()
+	<-code1
+	loop.tick <- struct{}{}
+	cancel2()
+	<-code2
+	if err := <-loop.stopped; !errors.Is(err, context.Canceled) {
+		t.Errorf("the build nobody waits for stopped with %v, want context.Canceled", err)
+	}
+}
+
+// An ad-hoc feed larger than AdhocMaxBytes is refused with a 400 that states
+// the limit and a window that fits; the refusal is remembered, so asking
+// again costs no computation. A feed within the limit is served.
+func TestAdhocSizeCap(t *testing.T) {
+	var calls atomic.Int32
+	s, _ := newTestServer(t, Options{AdhocMaxBytes: 20_000, Adhoc: func(ctx context.Context, q AdhocQuery) ([]byte, error) {
+		calls.Add(1)
+		return icsFor(q.ID(), q.Days, "cap"), nil // one event a day, about 200 bytes each
+	}})
+	s.now = func() time.Time { return today }
+	h := s.Handler()
+	for i := range 2 {
+		r := get(t, h, "GET", "/at.ics?lat=10&lon=10&tz=UTC&kinds=sunrise&days=365")
+		msg := body(t, r)
+		if r.StatusCode != http.StatusBadRequest {
+			t.Fatalf("request %d: status %d, want 400", i, r.StatusCode)
+		}
+		for _, want := range []string{"over the limit of 20,000 bytes per ad-hoc feed", "fewer kinds or days", "days="} {
+			if !strings.Contains(msg, want) {
+				t.Errorf("message %q does not say %q", msg, want)
+			}
+		}
+		if strings.Contains(msg, "\n") != strings.HasSuffix(msg, "\n") || strings.Count(msg, "\n") > 1 {
+			t.Errorf("message is not one line: %q", msg)
+		}
+	}
+	if n := calls.Load(); n != 1 {
+		t.Errorf("the refused feed was computed %d times, want once", n)
+	}
+	// The window the message suggests fits.
+	msg := body(t, get(t, h, "GET", "/at.ics?lat=10&lon=10&tz=UTC&kinds=sunrise&days=365"))
+	days := msg[strings.LastIndex(msg, "days=")+len("days="):]
+	days = days[:strings.IndexFunc(days, func(r rune) bool { return r < '0' || r > '9' })]
+	if r := get(t, h, "GET", "/at.ics?lat=10&lon=10&tz=UTC&kinds=sunrise&days="+days); r.StatusCode != http.StatusOK {
+		t.Errorf("days=%s, suggested by the refusal: status %d", days, r.StatusCode)
+	}
+}

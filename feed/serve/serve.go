@@ -61,6 +61,9 @@ const (
 	DefaultAdhocCacheEntries = 256
 	DefaultAdhocCacheBytes   = 64 << 20
 	DefaultAdhocTimeout      = 30 * time.Second
+	// DefaultAdhocMaxBytes: some web calendars are reported to drop
+	// subscriptions over about 1 MB (about 1,300 to 2,000 events).
+	DefaultAdhocMaxBytes     = 1_000_000
 	DefaultAdhocMinYear      = 1900
 	DefaultAdhocMaxYear      = 2100
 	DefaultReadHeaderTimeout = 5 * time.Second
@@ -112,6 +115,10 @@ type Options struct {
 	AdhocCacheBytes   int           // and their total size, default 64 MiB
 	AdhocConcurrency  int           // ad-hoc builds at once, default GOMAXPROCS
 	AdhocTimeout      time.Duration // one ad-hoc build, default 30s
+	// AdhocMaxBytes is the largest ad-hoc feed served; a larger one is
+	// refused with a 400 that states the limit (and the refusal is cached
+	// like a feed). Zero means DefaultAdhocMaxBytes.
+	AdhocMaxBytes int
 
 	// Schedule is the refresh's cron expression (default "15 3 * * *") read
 	// in ScheduleZone (nil: the server's zone).
@@ -146,6 +153,7 @@ type Server struct {
 	handler  http.Handler
 	limits   *adhocLimits
 	cache    *adhocCache
+	refused  *adhocCache // ad-hoc queries whose feed is over AdhocMaxBytes: the 400's message
 	adhocSem chan struct{}
 	flights  flightGroup
 
@@ -181,6 +189,7 @@ func New(opts Options) (*Server, error) {
 	setDefault(&opts.AdhocCacheBytes, DefaultAdhocCacheBytes)
 	setDefault(&opts.AdhocConcurrency, runtime.GOMAXPROCS(0))
 	setDefault(&opts.AdhocTimeout, DefaultAdhocTimeout)
+	setDefault(&opts.AdhocMaxBytes, DefaultAdhocMaxBytes)
 	setDefault(&opts.RetryMin, DefaultRetryMin)
 	setDefault(&opts.RetryMax, DefaultRetryMax)
 	setDefault(&opts.ReadHeaderTimeout, DefaultReadHeaderTimeout)
@@ -251,6 +260,7 @@ func New(opts Options) (*Server, error) {
 		}
 	}
 	s.cache = newAdhocCache(opts.AdhocCacheEntries, opts.AdhocCacheBytes)
+	s.refused = newAdhocCache(opts.AdhocCacheEntries, opts.AdhocCacheEntries*1024)
 	s.adhocSem = make(chan struct{}, opts.AdhocConcurrency)
 	s.handler = s.newHandler()
 	return s, nil
@@ -329,6 +339,7 @@ func (s *Server) refresh(ctx context.Context, trigger string, next BuildFunc) (e
 	}
 	s.snap.Store(snap)
 	s.cache.purge() // "today" has moved for ad-hoc feeds without a start
+	s.refused.purge()
 	if next != nil {
 		s.build = next
 	}

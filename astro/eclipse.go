@@ -224,17 +224,6 @@ func crossingsOf(f, hourAngle func(float64) float64, rate, a, b float64) (ts []f
 	return ts, up
 }
 
-// altAz returns the altitude and the azimuth (from north through east) in
-// radians of a direction of declination dec at local hour angle H for a
-// geodetic latitude with sine sp and cosine cp.
-func altAz(H, dec, sp, cp float64) (alt, az float64) {
-	sH, cH := math.Sincos(H)
-	sd, cd := math.Sincos(dec)
-	alt = math.Asin(sp*sd + cp*cd*cH)
-	az = norm2Pi(math.Atan2(-cd*sH, sd*cp-cd*cH*sp))
-	return alt, az
-}
-
 // secToTime converts Unix seconds to a time.Time rounded to the millisecond.
 func secToTime(sec float64) time.Time {
 	return timeFromUnix(math.Round(sec*1000) / 1000)

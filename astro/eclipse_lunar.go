@@ -224,7 +224,7 @@ func (e *LunarEclipse) Local(o Observer) LocalLunarEclipse {
 		}
 		v := e.atContact[i][:]
 		s, H := sinAlt(v)
-		_, az := altAz(H, v[leMoonDec], st.sinLat, st.cosLat)
+		az := st.azimuthFrom(H, v[leMoonDec], v[leMoonDist]/earthRadiusKm)
 		return Contact{Time: t, Altitude: math.Asin(s) * rad2deg, Azimuth: az * rad2deg, Up: s > sinH0}
 	}
 	l := LocalLunarEclipse{Eclipse: e,

@@ -337,7 +337,7 @@ func (e *SolarEclipse) Local(o Observer) (LocalSolarEclipse, bool) {
 	sinH0 := math.Sin(o.RiseSetAltitude() * deg2rad)
 	contact := func(sec float64) Contact {
 		s := at(sec)
-		alt, az := altAz(s.H, s.d, st.sinLat, st.cosLat)
+		alt, az := math.Asin(s.sinAlt), st.azimuthFrom(s.H, s.d, auKm/earthRadiusKm)
 		return Contact{Time: secToTime(sec), Altitude: alt * rad2deg, Azimuth: az * rad2deg, Up: s.sinAlt > sinH0}
 	}
 	outer := func(sec float64) float64 { s := at(sec); return math.Hypot(s.u, s.v) - s.l1 }

@@ -247,3 +247,58 @@ func TestEclipseWindowMargin(t *testing.T) {
 		}
 	}
 }
+
+// TestEclipseContactPlaces checks the body's altitude and azimuth reported at
+// each contact against the package's horizon ephemerides (a separate path:
+// the daily-sampled apparent Sun and the Moon's track with parallax):
+// within 0.01° (the shadow axis stands for the Sun's direction within 9″),
+// azimuths below 85° of altitude.
+func TestEclipseContactPlaces(t *testing.T) {
+	from, to := utc("2026-01-01T00:00:00Z"), utc("2028-01-01T00:00:00Z")
+	sun, err := NewEphemeris(from, to)
+	if err != nil {
+		t.Fatal(err)
+	}
+	moon, err := NewMoonEphemeris(from, to)
+	if err != nil {
+		t.Fatal(err)
+	}
+	se, _ := SolarEclipses(from, to)
+	le, _ := LunarEclipses(from, to)
+	n := 0
+	check := func(what string, c Contact, alt, az func(Observer, time.Time) (float64, error), o Observer) {
+		t.Helper()
+		if c.IsZero() {
+			return
+		}
+		h, err1 := alt(o, c.Time)
+		a, err2 := az(o, c.Time)
+		if err1 != nil || err2 != nil {
+			t.Fatal(err1, err2)
+		}
+		n++
+		// the azimuth is ill-defined near the zenith and the nadir
+		badAz := math.Abs(h) < 85 && math.Abs(wrapPi((a-c.Azimuth)*deg2rad)) > 0.01*deg2rad
+		if math.Abs(h-c.Altitude) > 0.01 || badAz {
+			t.Errorf("%s at %+v: altitude %.4f°, azimuth %.4f°; ephemeris %.4f°, %.4f°", what, o, c.Altitude, c.Azimuth, h, a)
+		}
+	}
+	for _, o := range benchSites(50) {
+		for _, e := range se {
+			if l, ok := e.Local(o); ok {
+				for _, c := range []Contact{l.C1, l.C2, l.Max, l.C3, l.C4} {
+					check("solar "+e.Greatest.Format(time.DateOnly), c, sun.SunAltitude, sun.SunAzimuth, o)
+				}
+			}
+		}
+		for _, e := range le {
+			l := e.Local(o)
+			for _, c := range []Contact{l.P1, l.U1, l.U2, l.Max, l.U3, l.U4, l.P4} {
+				check("lunar "+e.Max.Format(time.DateOnly), c, moon.MoonAltitude, moon.MoonAzimuth, o)
+			}
+		}
+	}
+	if n < 300 {
+		t.Errorf("only %d contacts checked", n)
+	}
+}

@@ -82,14 +82,6 @@ const (
 		"A lunar eclipse is safe to watch with the naked eye."
 )
 
-// compass names an azimuth (degrees from north through east) on 16 points.
-func compass(az float64) string {
-	names := [16]string{"north", "north-northeast", "northeast", "east-northeast", "east", "east-southeast",
-		"southeast", "south-southeast", "south", "south-southwest", "southwest", "west-southwest", "west",
-		"west-northwest", "northwest", "north-northwest"}
-	return names[int(math.Mod(az+11.25+360, 360)/22.5)%16]
-}
-
 // share writes a fraction as a whole percentage like percent, "89 %", but a
 // fraction that is not zero never rounds to "0 %" and one below 1 never to
 // "100 %": an eclipse of 0.3 % is still an eclipse.
@@ -112,9 +104,9 @@ func bodyPlace(body string, c astro.Contact) string {
 	case !c.Up:
 		return body + " below the horizon"
 	case c.Altitude < 1:
-		return fmt.Sprintf("%s on the horizon in the %s (azimuth %.0f°)", body, compass(c.Azimuth), c.Azimuth)
+		return fmt.Sprintf("%s on the horizon in the %s (azimuth %.0f°)", body, astro.CompassPoint(c.Azimuth), c.Azimuth)
 	}
-	return fmt.Sprintf("%s %s high in the %s (azimuth %.0f°)", body, degreesWhole(c.Altitude), compass(c.Azimuth), c.Azimuth)
+	return fmt.Sprintf("%s %s high in the %s (azimuth %.0f°)", body, degreesWhole(c.Altitude), astro.CompassPoint(c.Azimuth), c.Azimuth)
 }
 
 // degreesWhole writes an angle to the degree, with a proper minus sign.

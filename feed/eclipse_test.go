@@ -126,7 +126,7 @@ func TestEclipseAtSunset(t *testing.T) {
 	if len(es) != 1 {
 		t.Fatalf("%d entries", len(es))
 	}
-	for _, want := range []string{"16:42:41 CET first contact, the Moon begins to cover the Sun; Sun on the horizon in the west-southwest",
+	for _, want := range []string{"16:42:41 CET first contact, the Moon begins to cover the Sun; Sun on the horizon in the west-south-west",
 		"The Sun sets at 16:46:15 CET still eclipsed, 5 % of its diameter covered.",
 		"Greatest eclipse happens with the Sun below the horizon here", cautionEclipse} {
 		if !strings.Contains(es[0].Description, want) {

@@ -272,7 +272,7 @@ func (c *collector) compute(k config.Kind) error {
 	case config.KindLighting:
 		return c.lighting(k)
 	case "daily-summary":
-		return nil // rendered from other kinds by the catalogue
+		return c.summaryEvents(k) // the catalogue writes its own entries (see summaries)
 	case "solar-eclipse", "lunar-eclipse":
 		return c.eclipses(k)
 	}
@@ -718,6 +718,19 @@ func (c *collector) photoperiod(k config.Kind) error {
 		d := c.first.AddDate(0, 0, i-1)
 		c.events = append(c.events, Event{Kind: k, Start: midnight(d, c.p.Location), Date: d,
 			Direction: dir, DayLength: cur, DayChange: cur - prev})
+	}
+	return nil
+}
+
+// summaryEvents adds one event per local date for daily-summary, at the
+// date's start, with the day length and its change from the day before.
+func (c *collector) summaryEvents(k config.Kind) error {
+	if err := c.dayLengths(); err != nil {
+		return err
+	}
+	for i, d := 0, c.first; !d.After(c.last); i, d = i+1, d.AddDate(0, 0, 1) {
+		c.events = append(c.events, Event{Kind: k, Start: midnight(d, c.p.Location), Date: d,
+			DayLength: c.lengths[i+1], DayChange: c.lengths[i+1] - c.lengths[i]})
 	}
 	return nil
 }

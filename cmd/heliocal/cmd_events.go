@@ -2,7 +2,6 @@ package main
 
 import (
 	"context"
-	"encoding/csv"
 	"encoding/json"
 	"fmt"
 	"io"
@@ -57,22 +56,31 @@ sea), and a note on stderr names it.
 Parametrised kinds: sun-altitude:<degrees> (e.g. sun-altitude:-3), photoperiod:<duration>
 (e.g. photoperiod:12h30m), lighting:<duration> (e.g. lighting:16h).
 
+With --feed ID, the entries of a configured feed exactly as the feed has them (its kinds
+with their options, plans, lighting, notes and titles), over the feed's window unless
+--from/--to are given.
+
 Formats: table (local times, readable), json (UTC instants, RFC 3339 with milliseconds),
-csv (both).` + exitStatusHelp,
+csv (both; local times with a numeric offset), ics (an iCalendar file: with --feed the same
+bytes as the published feed for the same window).` + exitStatusHelp,
 		Example: `  heliocal events --lat 48.2 --lon 16.4 --elev 180 --tz Europe/Vienna --from 2027-01-01 --to 2027-01-07
-  heliocal events --site cairnmoor --kinds dark-window,moon-phases --format json`,
+  heliocal events --site cairnmoor --kinds dark-window,moon-phases --format json
+  heliocal events --feed fernhollow-lamps --from 2027-01-01 --to 2027-01-31 --format csv`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
 			o.latGiven, o.lonGiven = cmd.Flags().Changed("lat"), cmd.Flags().Changed("lon")
 			o.placeFlag = o.latGiven || o.lonGiven
 			o.kindsSet = cmd.Flags().Changed("kinds")
 			o.now = time.Now()
+			if o.feed != "" && !o.kindsSet {
+				return runEventsFeed(cmd.Context(), g, o)
+			}
 			return runEvents(cmd.Context(), g, o)
 		},
 	}
 	f := cmd.Flags()
 	f.StringVar(&o.site, "site", "", "id of a configured site")
-	f.StringVar(&o.feed, "feed", "", "id of a configured feed: its site, and its kinds unless --kinds is given")
+	f.StringVar(&o.feed, "feed", "", "id of a configured feed: list its entries as the feed has them, over its window unless --from/--to are given; with --kinds, those kinds at its site")
 	f.Float64Var(&o.lat, "lat", 0, "latitude in degrees, north positive (−90..90)")
 	f.Float64Var(&o.lon, "lon", 0, "longitude in degrees, east positive (−180..180)")
 	f.Float64Var(&o.elev, "elev", 0, "elevation in metres above sea level")
@@ -81,9 +89,9 @@ csv (both).` + exitStatusHelp,
 	f.StringVar(&o.from, "from", "", "first local date, YYYY-MM-DD (default today)")
 	f.StringVar(&o.to, "to", "", "last local date, YYYY-MM-DD, inclusive (default from + 6 days)")
 	f.StringVar(&o.kinds, "kinds", defaultKinds, "comma-separated event kinds")
-	f.StringVarP(&o.format, "format", "f", "table", "output format: table, json or csv")
+	f.StringVarP(&o.format, "format", "f", "table", "output format: table, json, csv or ics")
 	f.Float64Var(&o.maxLit, "max-illumination", 0, "dark-window: the Moon may be up while less than this fraction is lit (0..1)")
-	_ = cmd.RegisterFlagCompletionFunc("format", cobra.FixedCompletions([]string{"table", "json", "csv"}, cobra.ShellCompDirectiveNoFileComp))
+	_ = cmd.RegisterFlagCompletionFunc("format", cobra.FixedCompletions([]string{"table", "json", "csv", "ics"}, cobra.ShellCompDirectiveNoFileComp))
 	_ = cmd.RegisterFlagCompletionFunc("kinds", completeKinds)
 	_ = cmd.RegisterFlagCompletionFunc("site", completeFromConfig(g, siteIDs))
 	_ = cmd.RegisterFlagCompletionFunc("feed", completeFromConfig(g, feedIDs))
@@ -196,9 +204,6 @@ func parseKinds(list string) ([]config.Kind, error) {
 		if err != nil {
 			return nil, badInput("--kinds: %w", err)
 		}
-		if k.Name == "daily-summary" {
-			return nil, badInput("--kinds: %q: a feed entry, not an event; use the sunrise, sunset and twilight kinds", name)
-		}
 		kinds = append(kinds, k)
 	}
 	if len(kinds) == 0 {
@@ -275,10 +280,12 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 		return writeEventsJSON(g.stdout, site, from, to, events, notes)
 	case "csv":
 		return writeEventsCSV(g.stdout, site, events, notes)
+	case "ics":
+		return writeEventsICS(ctx, g.stdout, site, specs, sky, from, to)
 	case "table":
 		return writeEventsTable(g.stdout, site, events, notes)
 	}
-	return badInput("--format: %q: use table, json or csv", o.format)
+	return badInput("--format: %q: use table, json, csv or ics", o.format)
 }
 
 const jsonTime = "2006-01-02T15:04:05.000Z07:00"
@@ -299,6 +306,7 @@ type jsonEvent struct {
 	Lit       *float64 `json:"illuminated,omitempty"`
 	// Uncertainty is set on far-future seasons, apsides and phases.
 	Uncertainty *float64 `json:"uncertainty_s,omitempty"`
+	DayChange   *float64 `json:"day_change_s,omitempty"`
 	Lamp        *float64 `json:"lamp_s,omitempty"`
 	Short       bool     `json:"target_not_reached,omitempty"`
 }
@@ -307,6 +315,7 @@ type jsonNote struct {
 	Kind  string `json:"kind"`
 	Date  string `json:"date"`
 	State string `json:"state"`
+	Until string `json:"until,omitempty"` // lighting: the first date lamps are needed again
 }
 
 type jsonSite struct {
@@ -352,9 +361,12 @@ func toJSONEvent(e feed.Event) jsonEvent {
 		}
 	}
 	switch e.Kind.Name {
-	case "photoperiod", "sunrise", "sunset", config.KindLighting:
+	case "photoperiod", "sunrise", "sunset", config.KindLighting, "daily-summary":
 		s := math.Round(e.DayLength.Seconds()*1000) / 1000
 		j.DayLength = &s
+	}
+	if e.Kind.Name == "daily-summary" {
+		j.DayChange = seconds(e.DayChange)
 	}
 	if e.Kind.Name == config.KindLighting {
 		l := math.Round(e.Lamp.Seconds()*1000) / 1000
@@ -403,34 +415,13 @@ func writeEventsJSON(w io.Writer, s *config.Site, from, to time.Time, events []f
 		out.Events = append(out.Events, toJSONEvent(e))
 	}
 	for _, n := range notes {
-		out.Notes = append(out.Notes, jsonNote{Kind: n.Kind.String(), Date: n.Date.Format(time.DateOnly), State: stateName(n.State)})
+		out.Notes = append(out.Notes, toJSONNote(n))
 	}
 	out.Site = jsonSite{Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation,
 		Horizon: s.Horizon, TimeZone: s.TimeZone.String(), From: from.Format(time.DateOnly), To: to.Format(time.DateOnly)}
 	enc := json.NewEncoder(w)
 	enc.SetIndent("", "  ")
 	return enc.Encode(out)
-}
-
-func writeEventsCSV(w io.Writer, s *config.Site, events []feed.Event, notes []feed.Note) error {
-	loc := s.TimeZone.Location
-	cw := csv.NewWriter(w)
-	_ = cw.Write([]string{"date", "kind", "start_utc", "end_utc", "direction", "start_local", "end_local", "state", "azimuth_deg"})
-	for _, r := range mergeRows(events, notes) {
-		if r.note != nil {
-			_ = cw.Write([]string{r.note.Date.Format(time.DateOnly), r.note.Kind.String(), "", "", "", "", "", stateName(r.note.State), ""})
-			continue
-		}
-		e := r.event
-		end, endLocal := "", ""
-		if !e.End.IsZero() {
-			end, endLocal = e.End.UTC().Format(jsonTime), e.End.In(loc).Format(time.RFC3339)
-		}
-		_ = cw.Write([]string{e.Date.Format(time.DateOnly), e.Kind.String(), e.Start.UTC().Format(jsonTime), end,
-			dirName(e.Direction), e.Start.In(loc).Format(time.RFC3339), endLocal, "", azimuthCell(*e)})
-	}
-	cw.Flush()
-	return cw.Error()
 }
 
 type row struct {
@@ -473,7 +464,7 @@ func writeEventsTable(w io.Writer, s *config.Site, events []feed.Event, notes []
 	fmt.Fprintln(tw, "DATE\tTIME\tKIND\tDETAILS")
 	for _, r := range mergeRows(events, notes) {
 		if r.note != nil {
-			fmt.Fprintf(tw, "%s\t%s\t%s\t%s\n", r.note.Date.Format("2006-01-02 Mon"), "-", r.note.Kind, stateText(r.note.State))
+			fmt.Fprintf(tw, "%s\t%s\t%s\t%s\n", r.note.Date.Format("2006-01-02 Mon"), "-", r.note.Kind, noteText(r.note))
 			continue
 		}
 		e := r.event
@@ -514,8 +505,10 @@ func details(e *feed.Event, loc *time.Location) string {
 		parts = append(parts, dirName(e.Direction))
 	}
 	switch e.Kind.Name {
-	case "sunrise", "sunset", "photoperiod":
+	case "sunrise", "sunset", "photoperiod", config.KindLighting:
 		parts = append(parts, "day length "+words(e.DayLength.Round(time.Second)))
+	case "daily-summary":
+		parts = append(parts, "day length "+words(e.DayLength.Round(time.Second))+", change "+change(e.DayChange))
 	}
 	if hasAzimuth(*e) {
 		parts = append(parts, fmt.Sprintf("azimuth %.1f° (%s)", e.Azimuth, astro.CompassPoint(e.Azimuth)))

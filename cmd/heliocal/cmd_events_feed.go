@@ -1,0 +1,347 @@
+package main
+
+import (
+	"context"
+	"encoding/csv"
+	"encoding/json"
+	"fmt"
+	"io"
+	"math"
+	"strconv"
+	"strings"
+	"text/tabwriter"
+	"time"
+
+	"heliocal/astro"
+	"heliocal/config"
+	"heliocal/feed"
+	"heliocal/feed/ical"
+)
+
+// localCSVTime is the layout of local times in CSV: the offset is always
+// numeric ("+00:00" in UTC, never "Z"), so a local time reads as one.
+const localCSVTime = "2006-01-02T15:04:05-07:00"
+
+// runEventsFeed lists the entries of a configured feed exactly as the feed
+// has them: its kinds with their options, its plans, notes and titles.
+func runEventsFeed(ctx context.Context, g *globals, o *eventsOptions) error {
+	if o.site != "" || o.placeFlag || o.tz != "" || o.maxLit != 0 {
+		return badInput("--feed %q: give either --feed, --site or --lat/--lon/--tz; the feed's options come from the configuration", o.feed)
+	}
+	cfg, _, err := loadConfig(g)
+	if err != nil {
+		return err
+	}
+	var f *config.Feed
+	ids := make([]string, len(cfg.Feeds))
+	for i := range cfg.Feeds {
+		ids[i] = cfg.Feeds[i].ID
+		if cfg.Feeds[i].ID == o.feed {
+			f = &cfg.Feeds[i]
+		}
+	}
+	if f == nil {
+		return badInput("--feed: %q: no such feed (configured: %s)", o.feed, strings.Join(ids, ", "))
+	}
+	l := newLayout(cfg.Service.BaseURL)
+	cat, err := feed.NewCatalogue(cfg, feed.Options{Now: o.now, FeedURL: l.feedURL, PageURL: l.base, Refresh: refreshInterval(cfg, o.now)})
+	if err != nil {
+		return err
+	}
+	first, last, err := cat.Window(f)
+	if err != nil {
+		return err
+	}
+	var site *config.Site
+	for i := range cfg.Sites {
+		if cfg.Sites[i].ID == f.Site {
+			site = &cfg.Sites[i]
+		}
+	}
+	loc := site.TimeZone.Location
+	if o.from != "" {
+		if first, err = parseDate("--from", o.from, loc); err != nil {
+			return err
+		}
+		if o.to == "" {
+			last = first.AddDate(0, 0, 6)
+		}
+	}
+	if o.to != "" {
+		if last, err = parseDate("--to", o.to, loc); err != nil {
+			return err
+		}
+	}
+	if err := checkRange(first, last, feed.PlanMargin); err != nil {
+		return err
+	}
+	cal, err := cat.CalendarBetween(ctx, f, first, last)
+	if err != nil {
+		return err
+	}
+	switch o.format {
+	case "ics":
+		data, err := ical.Marshal(cal, ical.Options{Version: versionString()})
+		if err != nil {
+			return err
+		}
+		_, err = g.stdout.Write(data)
+		return err
+	case "json":
+		return writeEntriesJSON(g.stdout, site, first, last, cal)
+	case "csv":
+		return writeEntriesCSV(g.stdout, cal)
+	case "table":
+		return writeEntriesTable(g.stdout, site, cal)
+	}
+	return badInput("--format: %q: use table, json, csv or ics", o.format)
+}
+
+// checkRange refuses a date range that is reversed or outside the supported
+// dates, keeping margin days for the ephemeris.
+func checkRange(from, to time.Time, margin int) error {
+	if to.Before(from) {
+		return badInput("--to: %s is before --from %s", to.Format(time.DateOnly), from.Format(time.DateOnly))
+	}
+	lo, hi := astro.MinTime.AddDate(0, 0, 3+margin), astro.MaxTime.AddDate(0, 0, -4-margin)
+	if from.Before(lo) || to.After(hi) {
+		return badInput("--from/--to: %s..%s: outside the supported dates %s..%s", from.Format(time.DateOnly),
+			to.Format(time.DateOnly), lo.Format(time.DateOnly), hi.Format(time.DateOnly))
+	}
+	return nil
+}
+
+// jsonEntry is one calendar entry in JSON and, field by field, in CSV.
+type jsonEntry struct {
+	Kind        string   `json:"kind"`
+	Title       string   `json:"title"`
+	Date        string   `json:"date"`
+	Start       string   `json:"start,omitempty"` // timed entries only
+	End         string   `json:"end,omitempty"`
+	AllDay      bool     `json:"all_day,omitempty"`
+	Part        string   `json:"part,omitempty"`
+	Direction   string   `json:"direction,omitempty"`
+	Note        bool     `json:"note,omitempty"`
+	State       string   `json:"state,omitempty"`
+	Until       string   `json:"until,omitempty"`
+	Altitude    *float64 `json:"altitude_deg,omitempty"`
+	Distance    *float64 `json:"distance_au,omitempty"`
+	DayLength   *float64 `json:"day_length_s,omitempty"`
+	DayChange   *float64 `json:"day_change_s,omitempty"`
+	Lit         *float64 `json:"illuminated,omitempty"`
+	Lamp        *float64 `json:"lamp_s,omitempty"`
+	Short       bool     `json:"target_not_reached,omitempty"`
+	NextDay     bool     `json:"next_day,omitempty"`
+	Missing     string   `json:"missing_start,omitempty"`
+	Alarm       *float64 `json:"alarm_s,omitempty"`
+	UID         string   `json:"uid"`
+	Description string   `json:"description"`
+}
+
+func roundTo(x, unit float64) *float64 {
+	v := math.Round(x/unit) * unit
+	return &v
+}
+
+func seconds(d time.Duration) *float64 {
+	if d == 0 {
+		return nil
+	}
+	return roundTo(d.Seconds(), 0.001)
+}
+
+func toJSONEntry(cal *feed.Calendar, e *feed.Entry) jsonEntry {
+	f := e.Facts
+	j := jsonEntry{Kind: e.Kind, Title: e.Title, Date: e.Date.Format(time.DateOnly), AllDay: e.AllDay,
+		Part: f.Part, Direction: dirName(f.Direction), Note: f.Note, Short: f.Short, NextDay: f.NextDay,
+		Missing: f.Missing, UID: e.UID, Description: e.Description}
+	if !e.AllDay {
+		j.Start = e.Start.UTC().Format(jsonTime)
+		if !e.End.IsZero() {
+			j.End = e.End.UTC().Format(jsonTime)
+		}
+		alarm := cal.Alarm
+		if e.Alarm != nil {
+			alarm = *e.Alarm
+		}
+		if alarm > 0 {
+			j.Alarm = seconds(alarm)
+		}
+	}
+	if f.Note {
+		j.State = stateName(f.State)
+		if strings.HasPrefix(e.Kind, config.KindLighting+":") {
+			j.State = "no-lamps-needed"
+		}
+		if !f.Until.IsZero() {
+			j.Until = f.Until.Format(time.DateOnly)
+		}
+	}
+	if f.Altitude != 0 {
+		j.Altitude = roundTo(f.Altitude, 1e-4)
+	}
+	if f.Distance != 0 {
+		d := f.Distance
+		j.Distance = &d
+	}
+	j.DayLength, j.DayChange, j.Lamp = seconds(f.DayLength), seconds(f.DayChange), seconds(f.Lamp)
+	if f.Illuminated != 0 {
+		j.Lit = roundTo(f.Illuminated, 1e-4)
+	}
+	return j
+}
+
+func writeEntriesJSON(w io.Writer, s *config.Site, from, to time.Time, cal *feed.Calendar) error {
+	out := struct {
+		Feed    string      `json:"feed"`
+		Entries []jsonEntry `json:"entries"`
+		Site    jsonSite    `json:"site"`
+	}{Feed: cal.ID, Entries: make([]jsonEntry, 0, len(cal.Entries))}
+	for i := range cal.Entries {
+		out.Entries = append(out.Entries, toJSONEntry(cal, &cal.Entries[i]))
+	}
+	out.Site = jsonSite{Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation,
+		Horizon: s.Horizon, TimeZone: s.TimeZone.String(), From: from.Format(time.DateOnly), To: to.Format(time.DateOnly)}
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	return enc.Encode(out)
+}
+
+func writeEntriesCSV(w io.Writer, cal *feed.Calendar) error {
+	loc := cal.Site.Location
+	cw := csv.NewWriter(w)
+	header := []string{"date", "kind", "title", "all_day", "start_utc", "end_utc", "start_local", "end_local",
+		"part", "direction", "note", "state", "until", "altitude_deg", "distance_au", "day_length_s", "day_change_s",
+		"illuminated", "lamp_s", "target_not_reached", "next_day", "missing_start", "alarm_s", "uid", "description"}
+	_ = cw.Write(header)
+	for i := range cal.Entries {
+		e := &cal.Entries[i]
+		j := toJSONEntry(cal, e)
+		startLocal, endLocal := "", ""
+		if !e.AllDay {
+			startLocal = e.Start.In(loc).Format(localCSVTime)
+			if !e.End.IsZero() {
+				endLocal = e.End.In(loc).Format(localCSVTime)
+			}
+		}
+		_ = cw.Write([]string{j.Date, j.Kind, j.Title, yes(j.AllDay), j.Start, j.End, startLocal, endLocal,
+			j.Part, j.Direction, yes(j.Note), j.State, j.Until, num(j.Altitude), num(j.Distance), num(j.DayLength),
+			num(j.DayChange), num(j.Lit), num(j.Lamp), yes(j.Short), yes(j.NextDay), j.Missing, num(j.Alarm), j.UID, j.Description})
+	}
+	cw.Flush()
+	return cw.Error()
+}
+
+func yes(b bool) string {
+	if b {
+		return "true"
+	}
+	return ""
+}
+
+func num(p *float64) string {
+	if p == nil {
+		return ""
+	}
+	return strconv.FormatFloat(*p, 'f', -1, 64)
+}
+
+func writeEntriesTable(w io.Writer, s *config.Site, cal *feed.Calendar) error {
+	loc := s.TimeZone.Location
+	fmt.Fprintf(w, "%s (%s): %s, %s\n\n", cal.Title, cal.ID, s.Name, loc)
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	fmt.Fprintln(tw, "DATE\tTIME\tKIND\tTITLE")
+	for i := range cal.Entries {
+		e := &cal.Entries[i]
+		when := "all day"
+		if !e.AllDay {
+			when = e.Start.In(loc).Format("15:04:05 MST")
+			if !e.End.IsZero() {
+				when += "–" + e.End.In(loc).Format("15:04:05")
+				if ed := e.End.In(loc); time.Date(ed.Year(), ed.Month(), ed.Day(), 0, 0, 0, 0, time.UTC).After(e.Date) {
+					when += " +1 day"
+				}
+			}
+		}
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\n", e.Date.Format("2006-01-02 Mon"), when, e.Kind, e.Title)
+	}
+	return tw.Flush()
+}
+
+// toJSONNote is a date without an event; a lighting note says until when
+// no lamps are needed.
+func toJSONNote(n feed.Note) jsonNote {
+	j := jsonNote{Kind: n.Kind.String(), Date: n.Date.Format(time.DateOnly), State: stateName(n.State)}
+	if n.Kind.Name == config.KindLighting {
+		j.State = "no-lamps-needed"
+		if !n.Until.IsZero() {
+			j.Until = n.Until.Format(time.DateOnly)
+		}
+	}
+	return j
+}
+
+// noteText is a note's details in the table.
+func noteText(n *feed.Note) string {
+	if n.Kind.Name != config.KindLighting {
+		return stateText(n.State)
+	}
+	if n.Until.IsZero() {
+		return "no lamps needed to the end of the dates listed"
+	}
+	return "no lamps needed until " + n.Until.Format("2006-01-02")
+}
+
+// writeEventsCSV writes events and notes as CSV: every field of the JSON
+// form, the instants both in UTC and in local time with a numeric offset.
+func writeEventsCSV(w io.Writer, s *config.Site, events []feed.Event, notes []feed.Note) error {
+	loc := s.TimeZone.Location
+	cw := csv.NewWriter(w)
+	_ = cw.Write([]string{"date", "kind", "start_utc", "end_utc", "direction", "start_local", "end_local", "state",
+		"until", "part", "altitude_deg", "distance_au", "day_length_s", "day_change_s", "illuminated", "lamp_s",
+		"target_not_reached", "uncertainty_s", "azimuth_deg"})
+	for _, r := range mergeRows(events, notes) {
+		if r.note != nil {
+			n := toJSONNote(*r.note)
+			_ = cw.Write([]string{n.Date, n.Kind, "", "", "", "", "", n.State, n.Until, "", "", "", "", "", "", "", "", "", ""})
+			continue
+		}
+		e := r.event
+		j := toJSONEvent(*e)
+		endLocal := ""
+		if !e.End.IsZero() {
+			endLocal = e.End.In(loc).Format(localCSVTime)
+		}
+		_ = cw.Write([]string{j.Date, j.Kind, j.Start, j.End, j.Direction, e.Start.In(loc).Format(localCSVTime), endLocal, "",
+			"", j.Part, num(j.Altitude), num(j.Distance), num(j.DayLength), num(j.DayChange), num(j.Lit), num(j.Lamp),
+			yes(j.Short), num(j.Uncertainty), azimuthCell(*e)})
+	}
+	cw.Flush()
+	return cw.Error()
+}
+
+// writeEventsICS writes the events of a query as a one-off iCalendar file,
+// built as a feed of these kinds would be.
+func writeEventsICS(ctx context.Context, w io.Writer, s *config.Site, specs []config.KindSpec, sky *feed.Sky, from, to time.Time) error {
+	f := &config.Feed{ID: "events", Title: s.Name + " — events", Site: s.ID, Kinds: specs}
+	cal, err := sky.Calendar(ctx, s, f, from, to, feed.Options{})
+	if err != nil {
+		return err
+	}
+	data, err := ical.Marshal(cal, ical.Options{Version: versionString()})
+	if err != nil {
+		return err
+	}
+	_, err = w.Write(data)
+	return err
+}
+
+// change writes a signed duration as "+1 m 30 s" or "−2 m 05 s".
+func change(d time.Duration) string {
+	sign := "+"
+	if d < 0 {
+		sign, d = "−", -d
+	}
+	d = d.Round(time.Second)
+	return fmt.Sprintf("%s%d m %02d s", sign, int(d/time.Minute), int(d%time.Minute/time.Second))
+}

@@ -1,0 +1,212 @@
+package main
+
+import (
+	"encoding/csv"
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+	"time"
+)
+
+// `events --feed ID --format ics` over the feed's own window gives the same
+// bytes as the published file, for feeds with lighting, plans, filters and
+// per-entry alarms.
+func TestEventsFeedICSEqualsPublished(t *testing.T) {
+	dir := t.TempDir()
+	if code, _, errOut := runCLI(t, "publish", "--out", dir); code != 0 {
+		t.Fatalf("publish: exit %d: %s", code, errOut)
+	}
+	for _, id := range []string{"fernhollow-lamps", "cairnmoor-twilight", "fernhollow-year", "skarvlia-evening"} {
+		code, out, errOut := runCLI(t, "events", "--feed", id, "--format", "ics")
+		if code != 0 {
+			t.Fatalf("%s: exit %d: %s", id, code, errOut)
+		}
+		want, err := os.ReadFile(filepath.Join(dir, id+".ics"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if out != string(want) {
+			t.Errorf("%s: events --format ics differs from the published feed (%d vs %d bytes)", id, len(out), len(want))
+		}
+	}
+}
+
+const alarmConfig = `
+sites:
+  - id: yard
+    latitude: 48.2
+    longitude: 16.4
+    timezone: Europe/Vienna
+feeds:
+  - id: yard-sun
+    site: yard
+    alarm: 10m
+    kinds:
+      - sunset                 # the feed's alarm
+      - kind: sunrise
+        alarm: 0s              # none
+      - kind: civil-dusk
+        alarm: 1h
+      - daily-summary          # all-day: never an alarm
+    plans:
+      - title: Feed the hens
+        date: every day
+        start: "20:00"
+        alarm: 2h
+      - title: Lock the barn
+        date: every day
+        start: civil-dusk+15m  # the feed's alarm
+      - title: Market day
+        date: every saturday   # all-day
+        alarm: 1h
+`
+
+func writeConfig(t *testing.T, text string) string {
+	t.Helper()
+	p := filepath.Join(t.TempDir(), "heliocal.yaml")
+	if err := os.WriteFile(p, []byte(text), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return p
+}
+
+// Alarms go only where asked: per kinds entry and plan, else the feed's,
+// never on all-day entries (RFC 5545 VALARM with a relative TRIGGER).
+func TestAlarmsOnlyWhereAsked(t *testing.T) {
+	cfg := writeConfig(t, alarmConfig)
+	// 2027-01-04..10: seven dates, one Saturday (9 January 2027)
+	code, out, errOut := runCLI(t, "--config", cfg, "events", "--feed", "yard-sun", "--from", "2027-01-04", "--to", "2027-01-10", "--format", "ics")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	count := func(s string) int { return strings.Count(out, s) }
+	if n := count("BEGIN:VEVENT"); n != 7*6+1 {
+		t.Errorf("%d events, want %d", n, 7*6+1)
+	}
+	for _, tc := range []struct {
+		line string
+		want int
+	}{
+		{"BEGIN:VALARM", 28},          // sunset, civil dusk, two timed plans: 4 × 7
+		{"TRIGGER:-PT10M", 14},        // sunset and "Lock the barn"
+		{"TRIGGER:-PT1H\r\n", 7},      // civil dusk
+		{"TRIGGER:-PT2H\r\n", 7},      // "Feed the hens"
+		{"SUMMARY:Market day\r\n", 1}, // all-day plan, no alarm (counted above)
+		{"SUMMARY:Feed the hens\r\n", 7},
+	} {
+		if n := count(tc.line); n != tc.want {
+			t.Errorf("%q: %d, want %d", strings.TrimSpace(tc.line), n, tc.want)
+		}
+	}
+	// every VALARM sits in a timed event
+	for _, ev := range strings.Split(out, "BEGIN:VEVENT")[1:] {
+		if strings.Contains(ev, "VALUE=DATE") && strings.Contains(ev, "VALARM") {
+			t.Errorf("all-day event with an alarm:\n%s", ev)
+		}
+	}
+}
+
+// The JSON of a feed's entries: plans with date, start and end (all-day
+// plans with a date and no start), lighting periods with part and lamp_s.
+func TestEventsFeedJSON(t *testing.T) {
+	code, out, errOut := runCLI(t, "events", "--feed", "fernhollow-lamps", "--from", "2027-01-10", "--to", "2027-01-10", "--format", "json")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	var doc struct {
+		Entries []map[string]any `json:"entries"`
+	}
+	if err := json.Unmarshal([]byte(out), &doc); err != nil {
+		t.Fatal(err)
+	}
+	lamps := 0
+	for _, e := range doc.Entries {
+		if !strings.HasPrefix(e["kind"].(string), "lighting:") {
+			continue
+		}
+		lamps++
+		start, _ := time.Parse(time.RFC3339, e["start"].(string))
+		end, _ := time.Parse(time.RFC3339, e["end"].(string))
+		if e["date"] != "2027-01-10" || e["part"] == nil || e["lamp_s"] == nil ||
+			int(e["lamp_s"].(float64)+0.5) != int(end.Sub(start).Seconds()+0.5) {
+			t.Errorf("lighting entry %v", e)
+		}
+	}
+	if lamps != 3 { // 16 h in the evening; 14 h 30 min morning and evening
+		t.Errorf("%d lamp periods, want 3:\n%s", lamps, out)
+	}
+
+	code, out, errOut = runCLI(t, "events", "--feed", "fernhollow-year", "--from", "2027-04-25", "--to", "2027-06-30", "--format", "json")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	doc.Entries = nil
+	if err := json.Unmarshal([]byte(out), &doc); err != nil {
+		t.Fatal(err)
+	}
+	var plans []map[string]any
+	for _, e := range doc.Entries {
+		if e["kind"] == "plan" {
+			plans = append(plans, e)
+		}
+	}
+	// 25 April: the frost date, all-day; the open farm day: the Sunday after
+	// the June solstice of 21 June 2027 (USNO seasons), 27 June.
+	if len(plans) != 2 || plans[0]["date"] != "2027-04-25" || plans[0]["start"] != nil ||
+		plans[1]["date"] != "2027-06-27" || plans[1]["start"] == nil || plans[1]["end"] == nil || plans[1]["title"] != "Open farm day" {
+		t.Errorf("plans %v", plans)
+	}
+}
+
+// CSV carries the details JSON has, and local times never end in "Z",
+// also for a site in UTC.
+func TestEventsCSVLocalTimes(t *testing.T) {
+	code, out, errOut := runCLI(t, "events", "--lat", "51.48", "--lon", "0", "--tz", "UTC", "--from", "2027-01-10", "--to", "2027-01-11",
+		"--kinds", "sunrise,daily-summary,lighting:16h,golden-hour,moonrise,solar-noon", "--format", "csv")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	rows, err := csv.NewReader(strings.NewReader(out)).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	col := map[string]int{}
+	for i, h := range rows[0] {
+		col[h] = i
+	}
+	for _, h := range []string{"start_local", "end_local", "part", "day_length_s", "day_change_s", "illuminated", "altitude_deg", "lamp_s"} {
+		if _, ok := col[h]; !ok {
+			t.Fatalf("no column %q in %v", h, rows[0])
+		}
+	}
+	seen := map[string]bool{}
+	for _, r := range rows[1:] {
+		for _, c := range []string{"start_local", "end_local"} {
+			if v := r[col[c]]; v != "" && (strings.HasSuffix(v, "Z") || !strings.HasSuffix(v, "+00:00")) {
+				t.Errorf("%s %q", c, v)
+			}
+		}
+		for _, c := range []string{"day_change_s", "lamp_s", "illuminated", "altitude_deg", "part"} {
+			if r[col[c]] != "" {
+				seen[c] = true
+			}
+		}
+	}
+	if len(seen) != 5 {
+		t.Errorf("details seen: %v", seen)
+	}
+	code, out, _ = runCLI(t, "events", "--feed", "fernhollow-lamps", "--from", "2027-01-10", "--to", "2027-01-10", "--format", "csv")
+	rows, err = csv.NewReader(strings.NewReader(out)).ReadAll()
+	if code != 0 || err != nil || len(rows) != 4 {
+		t.Fatalf("feed CSV (exit %d, %v): %s", code, err, out)
+	}
+	for _, r := range rows[1:] {
+		for i, h := range rows[0] {
+			if strings.HasSuffix(h, "_local") && !strings.HasSuffix(r[i], "+01:00") {
+				t.Errorf("%s %q", h, r[i])
+			}
+		}
+	}
+}

@@ -2,6 +2,7 @@ package astro
 
 import (
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 	"testing"
@@ -76,6 +77,37 @@ func TestSeasonsAgainstERFA(t *testing.T) {
 	}
 	seasons.log(t)
 	apsides.log(t)
+}
+
+// TestCrossQuartersAgainstERFA: each instant CrossQuarters returns is the
+// ERFA instant of the longitude CrossQuarterLongitudes gives it (the early
+// February one is 315°, between the December solstice and the March
+// equinox), within 2 s (TT), 1900–2100.
+func TestCrossQuartersAgainstERFA(t *testing.T) {
+	n := 0
+	for _, r := range readCSV(t, "crosscheck-seasons-erfa.csv") {
+		lon, ok := strings.CutPrefix(r["kind"], "longitude_")
+		if !ok {
+			continue
+		}
+		i := slices.Index(CrossQuarterLongitudes[:], mustFloat(t, lon))
+		if i < 0 {
+			continue // an equinox or solstice
+		}
+		year, _ := strconv.Atoi(r["year"])
+		cq, err := CrossQuarters(year)
+		if err != nil {
+			t.Fatal(err)
+		}
+		jde, _ := JulianEphemerisDay(cq[i])
+		if d := (jde - mustFloat(t, r["tt_jd"])) * secondsPerDay; math.Abs(d) > 2 {
+			t.Errorf("%d: cross-quarter labelled %s° is %.0f s from ERFA's instant of that longitude (%s)", year, lon, d, r["source"])
+		}
+		n++
+	}
+	if n < 400 {
+		t.Fatalf("only %d cross-quarter rows", n)
+	}
 }
 
 // TestDailyEventsAgainstERFA compares sunrise, sunset (with the dip for the

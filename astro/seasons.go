@@ -45,14 +45,21 @@ func Seasons(year int) ([4]time.Time, error) {
 	return out, nil
 }
 
+// CrossQuarterLongitudes are the Sun's apparent longitudes (degrees) at the
+// cross-quarter instants CrossQuarters returns, in its order: 315° (early
+// February, between the December solstice and the March equinox), 45° (early
+// May), 135° (early August), 225° (early November).
+var CrossQuarterLongitudes = [4]float64{315, 45, 135, 225}
+
 // CrossQuarters returns the instants (UTC) in year when the Sun's apparent
-// longitude is 315° (early February), 45° (early May), 135° (early August)
-// and 225° (early November), in that calendar order: the cross-quarter days
-// of farm calendars, midway between the equinoxes and solstices. It returns
-// a *RangeError for years outside 1800..2200.
+// longitude is CrossQuarterLongitudes[i]: 315° (early February), 45° (early
+// May), 135° (early August) and 225° (early November), in that calendar
+// order: the cross-quarter days of farm calendars, midway between the
+// equinoxes and solstices. It returns a *RangeError for years outside
+// 1800..2200.
 func CrossQuarters(year int) ([4]time.Time, error) {
 	var out [4]time.Time
-	for i, lon := range [4]float64{315, 45, 135, 225} {
+	for i, lon := range CrossQuarterLongitudes {
 		t, err := SolarLongitudeTime(year, lon)
 		if err != nil {
 			return out, err

@@ -266,6 +266,21 @@ func TestCrossQuarters(t *testing.T) {
 			}
 		}
 	}
+	// Each instant carries its own longitude: the definition (the Sun's
+	// apparent longitude is CrossQuarterLongitudes[i] at CrossQuarters[i]),
+	// checked with the independent position of Sun().
+	for _, y := range []int{1900, 2027, 2100} {
+		cq, _ := CrossQuarters(y)
+		for i, want := range CrossQuarterLongitudes {
+			p, err := Sun(cq[i])
+			if err != nil {
+				t.Fatal(err)
+			}
+			if d := math.Abs(math.Remainder(p.Longitude-want, 360)); d > 1e-4 {
+				t.Errorf("%d: cross-quarter %d (%s) at longitude %.5f°, labelled %g°", y, i, cq[i].Format(time.DateOnly), p.Longitude, want)
+			}
+		}
+	}
 	if _, err := SolarLongitudeTime(2027, math.NaN()); err == nil {
 		t.Error("NaN longitude: no error")
 	}

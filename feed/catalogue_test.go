@@ -2,6 +2,8 @@ package feed
 
 import (
 	"context"
+	"math"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -473,4 +475,53 @@ func TestDarkWindowsInsideAstronomicalNight(t *testing.T) {
 			t.Errorf("%s: winter night at 39° N without astronomical night", n.Date.Format(time.DateOnly))
 		}
 	}
+}
+
+// Cross-quarter days are named by the Sun's apparent longitude at the
+// instant (the definition: 45°, 135°, 225°, 315°, midway between equinoxes
+// and solstices): early February is 315°, between the December solstice and
+// the March equinox; early May 45°, early August 135°, early November 225°.
+func TestCrossQuarterLabels(t *testing.T) {
+	s := site(t, "mid", 48.2, 16.4, "Europe/Vienna")
+	sk := sky(t, "2027-01-01", "2027-12-31")
+	events, _, err := sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "cross-quarter"), date("2027-01-01"), date("2027-12-31"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := map[time.Month]struct{ part, between string }{
+		time.February: {"315", "the December solstice and the March equinox"},
+		time.May:      {"45", "the March equinox and the June solstice"},
+		time.August:   {"135", "the June solstice and the September equinox"},
+		time.November: {"225", "the September equinox and the December solstice"},
+	}
+	if len(events) != 4 {
+		t.Fatalf("%d cross-quarter days in 2027", len(events))
+	}
+	for _, e := range events {
+		w, ok := want[e.Date.Month()]
+		if !ok || e.Part != w.part {
+			t.Errorf("%s: part %q, want %q", e.Date.Format(time.DateOnly), e.Part, w.part)
+			continue
+		}
+		p, err := astro.Sun(e.Start)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if d := math.Abs(math.Remainder(p.Longitude-mustFloat(t, e.Part), 360)); d > 1e-4 {
+			t.Errorf("%s: the Sun is at %.4f°, labelled %s°", e.Date.Format(time.DateOnly), p.Longitude, e.Part)
+		}
+		_, desc := describe(newSiteInfo(s), e)
+		if !strings.Contains(desc, "longitude "+w.part+"°") || !strings.Contains(desc, w.between) {
+			t.Errorf("%s: description %q", e.Date.Format(time.DateOnly), desc)
+		}
+	}
+}
+
+func mustFloat(t *testing.T, s string) float64 {
+	t.Helper()
+	f, err := strconv.ParseFloat(s, 64)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return f
 }

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"slices"
 	"sort"
+	"strconv"
 	"sync"
 	"time"
 
@@ -24,7 +25,8 @@ type Event struct {
 	// Date is the site-local date of Start, at 00:00 UTC.
 	Date time.Time
 	// Part distinguishes the occurrences of a span kind on one date:
-	// "morning", "evening" or "all-day".
+	// "morning", "evening", "night" or "all-day"; for a cross-quarter day it
+	// is the Sun's apparent longitude in degrees ("315" in early February).
 	Part string
 
 	// Values quoted in descriptions; zero when they do not apply.
@@ -660,16 +662,13 @@ func (c *collector) crossQuarters(k config.Kind) error {
 		for i, t := range q {
 			d := localDate(t, c.p.Location)
 			if c.inRange(d) {
-				c.events = append(c.events, Event{Kind: k, Start: t, Date: d, Part: crossQuarterParts[i]})
+				part := strconv.FormatFloat(astro.CrossQuarterLongitudes[i], 'f', -1, 64)
+				c.events = append(c.events, Event{Kind: k, Start: t, Date: d, Part: part})
 			}
 		}
 	}
 	return nil
 }
-
-// crossQuarterParts name the cross-quarter instants by the apparent solar
-// longitude they mark.
-var crossQuarterParts = [4]string{"45", "135", "225", "315"}
 
 func (c *collector) apsides(k config.Kind) error {
 	f := astro.Perihelion

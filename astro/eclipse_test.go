@@ -2,6 +2,7 @@ package astro
 
 import (
 	"math"
+	"strings"
 	"testing"
 	"time"
 )
@@ -38,6 +39,15 @@ func TestSolarEclipsesCanon(t *testing.T) {
 		{"2026-02-17T12:11:57Z", -0.9743, Annular}, // canon: 12:13:06 TD
 		{"2026-08-12T17:45:57Z", 0.8977, Total},    // canon: 17:47:06 TD
 		{"2027-08-02T10:06:41Z", 0.1421, Total},    // canon: 10:07:50 TD
+	}
+	// and the total eclipse of 2024-04-08: γ 0.3431 (canon, from memory;
+	// the instant is not checked: not remembered surely enough)
+	past, err := SolarEclipses(utc("2024-04-01T00:00:00Z"), utc("2024-04-30T00:00:00Z"))
+	if err != nil || len(past) != 1 {
+		t.Fatalf("April 2024: %v %v", past, err)
+	}
+	if e := past[0]; math.Abs(e.Gamma-0.3431) > 0.0005 || e.Type != Total {
+		t.Errorf("2024-04-08: γ %.4f, %s; canon 0.3431, total", e.Gamma, e.Type)
 	}
 	for _, w := range want {
 		var e *SolarEclipse
@@ -300,5 +310,44 @@ func TestEclipseContactPlaces(t *testing.T) {
 	}
 	if n < 300 {
 		t.Errorf("only %d contacts checked", n)
+	}
+}
+
+// TestEclipseCenturyCanon counts the eclipses of 2001–2100 by type against
+// the NASA canons' statistics for the 21st century (Espenak & Meeus; from
+// memory): 224 solar eclipses (77 partial, 72 annular, 68 total, 7 hybrid:
+// 2005-04-08, 2013-11-03, 2023-04-20, 2031-11-14, 2049-11-25, 2050-05-20,
+// 2067-12-06) and 228 lunar eclipses (86 penumbral, 57 partial, 85 total).
+// An eclipse missed by the search or misclassified at a limit shows here.
+func TestEclipseCenturyCanon(t *testing.T) {
+	from, to := utc("2001-01-01T00:00:00Z"), utc("2101-01-01T00:00:00Z")
+	se, err := SolarEclipses(from, to)
+	if err != nil {
+		t.Fatal(err)
+	}
+	le, err := LunarEclipses(from, to)
+	if err != nil {
+		t.Fatal(err)
+	}
+	solar := map[EclipseType]int{}
+	var hybrids []string
+	for _, e := range se {
+		solar[e.Type]++
+		if e.Type == Hybrid {
+			hybrids = append(hybrids, e.Greatest.Format(time.DateOnly))
+		}
+	}
+	lunar := map[EclipseType]int{}
+	for _, e := range le {
+		lunar[e.Type]++
+	}
+	if len(se) != 224 || solar[Partial] != 77 || solar[Annular] != 72 || solar[Total] != 68 || solar[Hybrid] != 7 {
+		t.Errorf("solar eclipses 2001–2100: %d %v; canon 224: 77 partial, 72 annular, 68 total, 7 hybrid", len(se), solar)
+	}
+	if got := strings.Join(hybrids, " "); got != "2005-04-08 2013-11-03 2023-04-20 2031-11-14 2049-11-25 2050-05-20 2067-12-06" {
+		t.Errorf("hybrid eclipses %s", got)
+	}
+	if len(le) != 228 || lunar[Penumbral] != 86 || lunar[Partial] != 57 || lunar[Total] != 85 {
+		t.Errorf("lunar eclipses 2001–2100: %d %v; canon 228: 86 penumbral, 57 partial, 85 total", len(le), lunar)
 	}
 }

@@ -32,6 +32,12 @@ type Site struct {
 	Elevation float64 `mapstructure:"elevation"` // metres above sea level
 	TimeZone  Zone    `mapstructure:"timezone"`  // IANA name; when absent, the zone at the coordinates (ZoneAt)
 	Horizon   float64 `mapstructure:"horizon"`   // altitude of the visible horizon in degrees (hills), default 0
+	// Pressure (hPa) and Temperature (°C) of the air scale the refraction
+	// at rise and set; nil = not given. When only one is given the other
+	// is the standard atmosphere's at Elevation (astro.StandardAtmosphere);
+	// when neither is, the almanacs' standard refraction (34′) applies.
+	Pressure    *float64 `mapstructure:"pressure_hpa"`
+	Temperature *float64 `mapstructure:"temperature_c"`
 	// ZoneInferred is true when the file gave no timezone and TimeZone was
 	// taken from the coordinates: the commands say so.
 	ZoneInferred bool `mapstructure:"-"`

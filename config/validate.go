@@ -19,14 +19,18 @@ import (
 
 // Bounds checked by Validate.
 const (
-	MinElevation  = -500.0 // metres; the lowest dry land is about −430 m (common practice: Dead Sea shore)
-	MaxElevation  = 9000.0 // metres; above the highest summit
-	MinHorizon    = -5.0   // degrees; a high site looking down to a far sea horizon
-	MaxHorizon    = 45.0   // degrees; a valley floor under steep slopes
-	MaxOffset     = 12 * time.Hour
-	MaxAlarm      = 7 * 24 * time.Hour
-	MaxIDLength   = 64
-	MaxTextLength = 200 // runes, for names, titles and labels
+	MinElevation   = -500.0 // metres; the lowest dry land is about −430 m (common practice: Dead Sea shore)
+	MaxElevation   = 9000.0 // metres; above the highest summit
+	MinHorizon     = -5.0   // degrees; a high site looking down to a far sea horizon
+	MaxHorizon     = 45.0   // degrees; a valley floor under steep slopes
+	MinPressure    = 300.0  // hPa; about 9000 m
+	MaxPressure    = 1100.0 // hPa; above any sea-level record
+	MinTemperature = -90.0  // °C; the coldest measured
+	MaxTemperature = 60.0   // °C; the hottest measured
+	MaxOffset      = 12 * time.Hour
+	MaxAlarm       = 7 * 24 * time.Hour
+	MaxIDLength    = 64
+	MaxTextLength  = 200 // runes, for names, titles and labels
 )
 
 // idPattern is the shape of site and feed ids: they become file names and
@@ -413,6 +417,12 @@ func (s *Site) validate(ps *problems, p string) {
 	}
 	if !(s.Horizon >= MinHorizon && s.Horizon <= MaxHorizon) {
 		ps.add(p+".horizon", ftoa(s.Horizon), fmt.Sprintf("must be within %g..%g degrees", MinHorizon, MaxHorizon), "the altitude of the visible skyline; 0 for a flat horizon")
+	}
+	if s.Pressure != nil && !(*s.Pressure >= MinPressure && *s.Pressure <= MaxPressure) {
+		ps.add(p+".pressure_hpa", ftoa(*s.Pressure), fmt.Sprintf("must be within %g..%g hPa", MinPressure, MaxPressure), "the air pressure at the site (not reduced to sea level), e.g. 1013; leave it out for standard refraction")
+	}
+	if s.Temperature != nil && !(*s.Temperature >= MinTemperature && *s.Temperature <= MaxTemperature) {
+		ps.add(p+".temperature_c", ftoa(*s.Temperature), fmt.Sprintf("must be within %g..%g °C", MinTemperature, MaxTemperature), "degrees Celsius, not Fahrenheit")
 	}
 	if s.TimeZone.Location == nil && s.Latitude >= -90 && s.Latitude <= 90 && s.Longitude >= -180 && s.Longitude <= 180 {
 		ps.add(p+".timezone", "", "is not set", `an IANA time zone name such as "Europe/Vienna"; ApplyDefaults takes it from the coordinates`)

@@ -150,10 +150,17 @@ func SiteOf(s *config.Site) Site {
 
 // PlaceOf is the observer and zone of a configured site.
 func PlaceOf(s *config.Site) Place {
-	return Place{
-		Observer: astro.Observer{Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation, Horizon: s.Horizon},
-		Location: s.TimeZone.Location,
+	o := astro.Observer{Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation, Horizon: s.Horizon}
+	if s.Pressure != nil || s.Temperature != nil {
+		o.Pressure, o.Temperature = astro.StandardAtmosphere(s.Elevation)
+		if s.Pressure != nil {
+			o.Pressure = *s.Pressure
+		}
+		if s.Temperature != nil {
+			o.Temperature = *s.Temperature
+		}
 	}
+	return Place{Observer: o, Location: s.TimeZone.Location}
 }
 
 // Entries turns the kinds of one feed into calendar entries for the local

@@ -525,3 +525,34 @@ func mustFloat(t *testing.T, s string) float64 {
 	}
 	return f
 }
+
+// A site with only temperature_c takes the standard atmosphere's pressure
+// at its elevation (ICAO: 963.8 hPa at 420 m), says so in the sunrise text,
+// and a cold morning's sunrise comes earlier than with the standard
+// refraction (Meeus ch. 16: refraction ∝ P/(273+T)).
+func TestSiteAtmosphere(t *testing.T) {
+	std := site(t, "std", 48.2, 16.4, "Europe/Vienna")
+	std.Elevation = 420
+	cold := *std
+	minus20 := -20.0
+	cold.Temperature = &minus20
+	if o := PlaceOf(&cold).Observer; math.Abs(o.Pressure-963.8) > 0.1 || o.Temperature != -20 {
+		t.Fatalf("observer %+v, want 963.8 hPa and −20 °C", o)
+	}
+	sk := sky(t, "2027-01-15", "2027-01-15")
+	specs := []config.KindSpec{{Kind: mustKinds(t, "sunrise")[0]}}
+	a, err := sk.Entries(context.Background(), std, "x", specs, date("2027-01-15"), date("2027-01-15"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := sk.Entries(context.Background(), &cold, "x", specs, date("2027-01-15"), date("2027-01-15"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !b[0].Start.Before(a[0].Start) {
+		t.Errorf("cold sunrise %v not before standard %v", b[0].Start, a[0].Start)
+	}
+	if !strings.Contains(b[0].Description, "refraction for 964 hPa and −20 °C") || !strings.Contains(a[0].Description, "standard refraction") {
+		t.Errorf("descriptions:\n%s\n%s", a[0].Description, b[0].Description)
+	}
+}

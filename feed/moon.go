@@ -207,8 +207,8 @@ func describeMoon(s *siteInfo, e Event) (string, string) {
 		b.WriteString(FutureNote(e.Start))
 	case "moonrise", "moonset":
 		title = fmt.Sprintf("%s (%s, %s lit)", title, waxing(e), percent(e.Illuminated))
-		fmt.Fprintf(&b, "%s at %s, %s: the Moon is %s, %s lit.\nThe Moon %s.\nUpper limb of the Moon on the horizon with standard refraction, seen from the site.",
-			plainNames[e.Kind.Name], at, s.where, waxing(e), percent(e.Illuminated), bearing(e))
+		fmt.Fprintf(&b, "%s at %s, %s: the Moon is %s, %s lit.\nThe Moon %s.\nUpper limb of the Moon on the horizon with %s, seen from the site.",
+			plainNames[e.Kind.Name], at, s.where, waxing(e), percent(e.Illuminated), bearing(e), s.refraction)
 	case "moon-transit":
 		title = fmt.Sprintf("Moon highest, %s up", degrees(e.Altitude))
 		fmt.Fprintf(&b, "The Moon crosses the meridian at %s, %s, %s above the horizon (%s, %s lit).",

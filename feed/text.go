@@ -78,11 +78,20 @@ func degrees(a float64) string {
 // siteInfo is a site with its description, formatted once per feed.
 type siteInfo struct {
 	*config.Site
-	where string // "Name (48.200° N, 16.400° E)"
+	where      string // "Name (48.200° N, 16.400° E)"
+	refraction string // "standard refraction" or "refraction for 1030 hPa and −20 °C"
 }
 
 func newSiteInfo(s *config.Site) *siteInfo {
-	return &siteInfo{Site: s, where: where(s)}
+	return &siteInfo{Site: s, where: where(s), refraction: refractionText(PlaceOf(s).Observer)}
+}
+
+// refractionText names the refraction rise and set are computed with.
+func refractionText(o astro.Observer) string {
+	if o.Pressure == 0 {
+		return "standard refraction"
+	}
+	return fmt.Sprintf("refraction for %.0f hPa and %s °C", o.Pressure, strings.Replace(strconv.FormatFloat(math.Round(o.Temperature*10)/10, 'f', -1, 64), "-", "−", 1))
 }
 
 func where(s *config.Site) string {
@@ -194,7 +203,7 @@ func describe(s *siteInfo, e Event) (string, string) {
 	case "sunrise", "sunset":
 		b.WriteString(title + " at " + at + ": the Sun " + bearing(e) + ".\n")
 		b.WriteString("Day length " + hm(e.DayLength) + " (" + change(e.DayChange) + " on the day before).\n")
-		b.WriteString("Upper limb of the Sun on the horizon with standard refraction.\n")
+		b.WriteString("Upper limb of the Sun on the horizon with " + s.refraction + ".\n")
 		b.WriteString(cautionLegal)
 	case "civil-dawn", "civil-dusk", "nautical-dawn", "nautical-dusk", "astronomical-dawn", "astronomical-dusk":
 		b.WriteString(title + " at " + at + ".\n" + twilightMeaning[e.Kind.Name])

@@ -36,8 +36,11 @@ type eventsOptions struct {
 	maxLit    float64
 	placeFlag bool // --lat or --lon given
 	latGiven  bool
-	lonGiven  bool
-	now       time.Time
+	// --pressure and --temperature, nil when not given
+	pressure, temperature   *float64
+	pressureV, temperatureV float64
+	lonGiven                bool
+	now                     time.Time
 }
 
 func newEventsCommand(g *globals) *cobra.Command {
@@ -46,7 +49,7 @@ func newEventsCommand(g *globals) *cobra.Command {
 		Use:   "events",
 		Short: "List the events of chosen kinds for a site or any place",
 		Long: `List the events of chosen kinds for a configured site (--site) or for any place
-(--lat and --lon, both required, optionally --tz, --elev and --horizon), for the local dates
+(--lat and --lon, both required, optionally --tz, --elev, --horizon, --pressure and --temperature), for the local dates
 --from..--to (inclusive, in the place's time zone). Without --tz the zone in force at the
 place is taken from an offline map of the zone boundaries (the nautical zone Etc/GMT±N at
 sea), and a note on stderr names it.
@@ -70,6 +73,12 @@ bytes as the published feed for the same window).` + exitStatusHelp,
 		RunE: func(cmd *cobra.Command, _ []string) error {
 			o.latGiven, o.lonGiven = cmd.Flags().Changed("lat"), cmd.Flags().Changed("lon")
 			o.placeFlag = o.latGiven || o.lonGiven
+			if cmd.Flags().Changed("pressure") {
+				o.pressure = &o.pressureV
+			}
+			if cmd.Flags().Changed("temperature") {
+				o.temperature = &o.temperatureV
+			}
 			o.kindsSet = cmd.Flags().Changed("kinds")
 			o.now = time.Now()
 			if o.feed != "" && !o.kindsSet {
@@ -85,6 +94,8 @@ bytes as the published feed for the same window).` + exitStatusHelp,
 	f.Float64Var(&o.lon, "lon", 0, "longitude in degrees, east positive (−180..180)")
 	f.Float64Var(&o.elev, "elev", 0, "elevation in metres above sea level")
 	f.Float64Var(&o.horizon, "horizon", 0, "altitude of the visible horizon in degrees (hills)")
+	f.Float64Var(&o.pressureV, "pressure", 0, "air pressure at the place in hPa, for refraction (default: standard refraction)")
+	f.Float64Var(&o.temperatureV, "temperature", 0, "air temperature at the place in °C, for refraction (default: standard refraction)")
 	f.StringVar(&o.tz, "tz", "", "IANA time zone of the place, e.g. Europe/Vienna (default: the zone in force at --lat/--lon)")
 	f.StringVar(&o.from, "from", "", "first local date, YYYY-MM-DD (default today)")
 	f.StringVar(&o.to, "to", "", "last local date, YYYY-MM-DD, inclusive (default from + 6 days)")
@@ -131,7 +142,8 @@ func eventsPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 	case !o.lonGiven:
 		return nil, badInput("--lon: missing: give both --lat and --lon (--lat %v was given)", o.lat)
 	}
-	s := &config.Site{ID: "place", Latitude: o.lat, Longitude: o.lon, Elevation: o.elev, Horizon: o.horizon}
+	s := &config.Site{ID: "place", Latitude: o.lat, Longitude: o.lon, Elevation: o.elev, Horizon: o.horizon,
+		Pressure: o.pressure, Temperature: o.temperature}
 	switch {
 	case math.IsNaN(o.lat) || o.lat < -90 || o.lat > 90:
 		return nil, badInput("--lat: %v: must be within -90..90 degrees", o.lat)
@@ -141,6 +153,10 @@ func eventsPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 		return nil, badInput("--elev: %v: must be within -500..9000 metres", o.elev)
 	case math.IsNaN(o.horizon) || o.horizon < -5 || o.horizon > 45:
 		return nil, badInput("--horizon: %v: must be within -5..45 degrees", o.horizon)
+	case o.pressure != nil && !(*o.pressure >= config.MinPressure && *o.pressure <= config.MaxPressure):
+		return nil, badInput("--pressure: %v: must be within %g..%g hPa (the air pressure at the place)", *o.pressure, config.MinPressure, config.MaxPressure)
+	case o.temperature != nil && !(*o.temperature >= config.MinTemperature && *o.temperature <= config.MaxTemperature):
+		return nil, badInput("--temperature: %v: must be within %g..%g °C", *o.temperature, config.MinTemperature, config.MaxTemperature)
 	}
 	if o.tz == "" {
 		z, err := config.ZoneLocationAt(o.lat, o.lon)

@@ -1,0 +1,72 @@
+package astro
+
+import (
+	"math"
+	"testing"
+	"time"
+)
+
+// TestStandardAtmosphere checks the ICAO standard atmosphere against its
+// table (ISO 2533; values from memory, to 0.1 hPa): 1013.25 hPa at sea level,
+// 898.7 hPa at 1000 m, 795.0 hPa at 2000 m, 540.2 hPa at 5000 m, and the
+// temperature falling 6.5 °C per km from 15 °C.
+func TestStandardAtmosphere(t *testing.T) {
+	for _, c := range []struct{ h, p, t float64 }{
+		{0, 1013.25, 15}, {1000, 898.7, 8.5}, {2000, 795.0, 2}, {5000, 540.2, -17.5},
+	} {
+		p, tc := StandardAtmosphere(c.h)
+		if math.Abs(p-c.p) > 0.15 || math.Abs(tc-c.t) > 1e-9 {
+			t.Errorf("%g m: %.2f hPa %.2f °C, want %.1f hPa %.1f °C", c.h, p, tc, c.p, c.t)
+		}
+	}
+}
+
+// TestRefractionScaling checks the pressure and temperature scaling of the
+// refraction (Meeus, Astronomical Algorithms 2nd ed., ch. 16: R ·
+// (P/1010) · (283/(273+T))): the almanacs' conditions (1010 hPa, 10 °C)
+// give exactly today's sunrise; a cold, high-pressure morning (−20 °C,
+// 1030 hPa) raises the refraction at the horizon from 34′ to 38.8′, which
+// brings sunrise forward by that altitude difference divided by the Sun's
+// rate of climb (within 1%); a skyline's Bennett refraction scales the
+// same way; bad values are refused.
+func TestRefractionScaling(t *testing.T) {
+	std := Observer{Latitude: 48.2, Longitude: 16.4}
+	same := std
+	same.Pressure, same.Temperature = 1010, 10
+	if f := same.RefractionFactor(); math.Abs(f-1) > 1e-15 {
+		t.Errorf("factor at 1010 hPa, 10 °C = %v, want 1", f)
+	}
+	if d := same.RiseSetAltitude() - std.RiseSetAltitude(); math.Abs(d) > 1e-4 {
+		t.Errorf("standard conditions move the rise altitude by %g°", d)
+	}
+	cold := std
+	cold.Pressure, cold.Temperature = 1030, -20
+	wantDh := 34.0 / 60 * (cold.RefractionFactor() - 1) // degrees more refraction
+	if math.Abs(cold.RefractionFactor()*34-38.8) > 0.05 {
+		t.Errorf("cold refraction %.2f′, want 38.8′", cold.RefractionFactor()*34)
+	}
+	day := time.Date(2027, 1, 15, 0, 0, 0, 0, time.UTC)
+	e, err := NewEphemeris(day, day.Add(24*time.Hour))
+	if err != nil {
+		t.Fatal(err)
+	}
+	a, _ := e.SunCrossings(std, std.RiseSetAltitude(), day, day.Add(24*time.Hour))
+	b, _ := e.SunCrossings(cold, cold.RiseSetAltitude(), day, day.Add(24*time.Hour))
+	h1, _ := e.SunAltitude(std, a[0].Time.Add(-30*time.Second))
+	h2, _ := e.SunAltitude(std, a[0].Time.Add(30*time.Second))
+	rate := (h2 - h1) / 60 // degrees per second
+	got := a[0].Time.Sub(b[0].Time).Seconds()
+	if want := wantDh / rate; math.Abs(got-want) > 0.01*want {
+		t.Errorf("cold sunrise earlier by %.1f s, want %.1f s", got, want)
+	}
+	hill, coldHill := Observer{Horizon: 3}, Observer{Horizon: 3, Pressure: 1030, Temperature: -20}
+	bennett := hill.Horizon - 16.0/60 - hill.RiseSetAltitude()
+	if d := hill.Horizon - 16.0/60 - coldHill.RiseSetAltitude() - bennett*cold.RefractionFactor(); math.Abs(d) > 1e-12 {
+		t.Errorf("skyline refraction not scaled: off by %g°", d)
+	}
+	for _, o := range []Observer{{Pressure: 50}, {Pressure: 1013, Temperature: 80}} {
+		if err := o.Validate(); err == nil {
+			t.Errorf("%+v accepted", o)
+		}
+	}
+}

@@ -78,6 +78,9 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-color.yaml", "feeds[0].color", "goldenrood", "not a CSS3 colour name", `did you mean "goldenrod"?`, 0},
 		{"bad-refresh.yaml", "service.refresh", "15 3 * *", "must have 5 fields, has 4", "minute hour", 0},
 		{"bad-refresh-field.yaml", "service.refresh", "61 3 * * *", "malformed cron expression", "", 0},
+		{"refresh-never.yaml", "service.refresh", "0 0 30 2 *", "never fires: no date matches it", `"15 3 * * *"`, 0},
+		{"refresh-often.yaml", "service.refresh", "@every 1ns", "fires every 1s, more often than once a minute", `"@every 6h"`, 0},
+		{"refresh-often-seconds.yaml", "service.refresh", "@every 30s", "fires every 30s, more often than once a minute", "", 0},
 		{"bad-refresh-zone.yaml", "service.refresh_zone", "Europe/Viena", "unknown time zone", `"Europe/Vienna"`, 0},
 		{"bad-base-url.yaml", "service.base_url", "sky.example.org/calendars", "must be an absolute http or https URL", "", 0},
 		{"bad-base-url-scheme.yaml", "service.base_url", "ftp://sky.example.org/calendars", "must be an absolute http or https URL", "", 0},
@@ -466,5 +469,25 @@ func TestResolve(t *testing.T) {
 	_, src, err = Resolve("elsewhere.yaml", env)
 	if !errors.Is(err, fs.ErrNotExist) || src.Path != "elsewhere.yaml" {
 		t.Fatalf("missing --config file: source %v, err %v", src, err)
+	}
+}
+
+// Schedules that fire at most once a minute, however rarely, are accepted:
+// the check refuses only those that never fire or fire more often.
+func TestRefreshSchedulesAccepted(t *testing.T) {
+	now := time.Date(2026, 12, 3, 8, 0, 0, 0, time.UTC)
+	for _, spec := range []string{"* * * * *", "@every 1m", "@every 90s", "0 0 29 2 *", "@daily", "15 3 * * *", "0 4 1 1 *"} {
+		if msg := checkCronFires(spec, now); msg != "" {
+			t.Errorf("%q refused: %s", spec, msg)
+		}
+	}
+	for spec, want := range map[string]string{
+		"0 0 30 2 *": "never fires: no date matches it",
+		"0 0 31 4 *": "never fires: no date matches it",
+		"@every 1ns": "fires every 1s, more often than once a minute",
+	} {
+		if msg := checkCronFires(spec, now); msg != want {
+			t.Errorf("%q: %q, want %q", spec, msg, want)
+		}
 	}
 }

@@ -243,6 +243,8 @@ func (s *Service) validate(ps *problems) {
 	if s.Refresh != "" {
 		if msg := checkCron(s.Refresh); msg != "" {
 			ps.add("service.refresh", s.Refresh, msg, `five fields: minute hour day-of-month month day-of-week, e.g. "15 3 * * *" for 03:15 every night`)
+		} else if msg := checkCronFires(s.Refresh, time.Now()); msg != "" {
+			ps.add("service.refresh", s.Refresh, msg, `e.g. "15 3 * * *" for 03:15 every night, or "@every 6h"`)
 		}
 	}
 	if s.MaxFeedBytes < 0 {
@@ -343,6 +345,37 @@ func checkCron(expr string) string {
 	}
 	if _, err := cron.ParseStandard(t); err != nil {
 		return "malformed cron expression: " + oneLine(err.Error())
+	}
+	return ""
+}
+
+// MinRefreshInterval is the shortest time between two refreshes a
+// schedule may ask for: a rebuild of every feed more often than this would
+// only burn CPU (the sky does not change that fast).
+const MinRefreshInterval = time.Minute
+
+// checkCronFires tells what is wrong with a well-formed schedule that never
+// fires (no date matches, e.g. "0 0 30 2 *") or fires more often than once
+// per MinRefreshInterval (e.g. "@every 1ns"), looking at its next runs
+// after now; "" when it is fine.
+func checkCronFires(expr string, now time.Time) string {
+	sched, err := cron.ParseStandard(strings.TrimSpace(expr))
+	if err != nil {
+		return "" // reported by checkCron
+	}
+	prev := sched.Next(now.UTC())
+	if prev.IsZero() {
+		return "never fires: no date matches it"
+	}
+	for range 3 {
+		next := sched.Next(prev)
+		if next.IsZero() {
+			break
+		}
+		if gap := next.Sub(prev); gap < MinRefreshInterval {
+			return fmt.Sprintf("fires every %v, more often than once a minute", gap)
+		}
+		prev = next
 	}
 	return ""
 }

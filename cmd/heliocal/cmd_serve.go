@@ -128,6 +128,7 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 				next, src, err := loadConfig(g)
 				if err != nil {
 					log.Error("reload refused: the new configuration is invalid; still serving the old feeds", "err", err)
+					srv.RefuseReload(err)
 					continue
 				}
 				if err := srv.Reload(ctx, serveBuild(next, base)); err != nil {

@@ -173,6 +173,14 @@ func TestServeReloadRefusesInvalidConfig(t *testing.T) {
 	if code != http.StatusOK || after != before {
 		t.Errorf("after a refused reload the feed changed (status %d)", code)
 	}
+	// The refusal is visible: /healthz says degraded and why, /metrics counts it.
+	if code, health := fetch("/healthz"); code != http.StatusOK || !strings.Contains(health, `"status": "degraded"`) ||
+		!strings.Contains(health, "configuration reload refused") || !strings.Contains(health, "latitude") {
+		t.Errorf("/healthz after a refused reload: %d\n%s", code, health)
+	}
+	if _, metrics := fetch("/metrics"); !strings.Contains(metrics, "heliocal_reloads_refused_total 1\n") {
+		t.Error("/metrics does not count the refused reload")
+	}
 	cancel()
 	if code := <-done; code != 0 {
 		t.Errorf("serve exited %d:\n%s", code, logs.String())

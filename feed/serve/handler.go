@@ -15,6 +15,8 @@ import (
 	"time"
 
 	"github.com/prometheus/client_golang/prometheus/promhttp"
+
+	"heliocal/internal/schedule"
 )
 
 // The routes:
@@ -217,7 +219,11 @@ func (s *Server) serveAsset(w http.ResponseWriter, r *http.Request, a *asset) {
 
 // health is the /healthz body.
 type health struct {
-	Status      string     `json:"status"` // "ok", "stale" (last refresh failed), "starting", "failing"
+	// Status is "ok"; "degraded" (feeds served, but a reload was refused or
+	// the feeds are older than two refresh periods: see Reasons); "stale"
+	// (the last refresh failed); "starting" or "failing" (no feeds yet).
+	Status      string     `json:"status"`
+	Reasons     []string   `json:"reasons,omitempty"`
 	Built       *time.Time `json:"built,omitempty"`
 	LastSuccess *time.Time `json:"last_success,omitempty"`
 	LastAttempt *time.Time `json:"last_attempt,omitempty"`
@@ -228,7 +234,22 @@ type health struct {
 }
 
 func (s *Server) serveHealth(w http.ResponseWriter, r *http.Request) {
+	hb, code := s.health()
+	body, _ := json.MarshalIndent(hb, "", "  ") // plain struct: cannot fail
+	h := w.Header()
+	h.Set("Content-Type", "application/json")
+	h["Cache-Control"] = hdrNoStore
+	h.Set("Content-Length", strconv.Itoa(len(body)+1))
+	w.WriteHeader(code)
+	if r.Method != http.MethodHead {
+		w.Write(append(body, '\n'))
+	}
+}
+
+// health assesses the server for /healthz.
+func (s *Server) health() (health, int) {
 	snap := s.snap.Load()
+	now := s.now()
 	s.healthMu.Lock()
 	hb := health{NextRefresh: s.sched.Next().UTC()}
 	if !s.lastSuccess.IsZero() {
@@ -243,6 +264,16 @@ func (s *Server) serveHealth(w http.ResponseWriter, r *http.Request) {
 		hb.LastError = oneLine(s.lastErr.Error())
 	}
 	failed := s.lastErr != nil
+	if s.reloadErr != nil {
+		hb.Reasons = append(hb.Reasons, fmt.Sprintf("configuration reload refused at %s, still serving the previous configuration: %s",
+			s.reloadAt.UTC().Format(time.RFC3339), oneLine(s.reloadErr.Error())))
+	}
+	if period, err := schedule.Interval(s.sched.Spec(), s.sched.Location(), now); err == nil && !s.lastSuccess.IsZero() {
+		if age := now.Sub(s.lastSuccess); age > 2*period {
+			hb.Reasons = append(hb.Reasons, fmt.Sprintf("feeds last built %s ago, more than two refresh periods (%s each)",
+				age.Round(time.Second), period))
+		}
+	}
 	s.healthMu.Unlock()
 
 	code := http.StatusOK
@@ -253,6 +284,8 @@ func (s *Server) serveHealth(w http.ResponseWriter, r *http.Request) {
 		hb.Status, code = "starting", http.StatusServiceUnavailable
 	case failed:
 		hb.Status = "stale"
+	case len(hb.Reasons) > 0:
+		hb.Status = "degraded"
 	default:
 		hb.Status = "ok"
 	}
@@ -260,15 +293,7 @@ func (s *Server) serveHealth(w http.ResponseWriter, r *http.Request) {
 		t := snap.built.UTC()
 		hb.Built, hb.Feeds, hb.Events = &t, snap.feeds, snap.events
 	}
-	body, _ := json.MarshalIndent(hb, "", "  ") // plain struct: cannot fail
-	h := w.Header()
-	h.Set("Content-Type", "application/json")
-	h["Cache-Control"] = hdrNoStore
-	h.Set("Content-Length", strconv.Itoa(len(body)+1))
-	w.WriteHeader(code)
-	if r.Method != http.MethodHead {
-		w.Write(append(body, '\n'))
-	}
+	return hb, code
 }
 
 // plain writes a one-line text/plain response that is never cached.

@@ -43,6 +43,7 @@ type metrics struct {
 	events         prometheus.Gauge
 	adhocCache     *prometheus.CounterVec
 	adhocSeconds   prometheus.Histogram
+	reloadsRefused prometheus.Counter
 
 	// Pre-resolved children for the hot path: route × common status.
 	hot      map[string]map[int]prometheus.Counter
@@ -94,9 +95,13 @@ func newMetrics(reg prometheus.Registerer) (*metrics, error) {
 			Help:    "Time to build one ad-hoc feed.",
 			Buckets: []float64{.001, .0025, .005, .01, .025, .05, .1, .25, .5, 1, 2.5},
 		}),
+		reloadsRefused: prometheus.NewCounter(prometheus.CounterOpts{
+			Name: "heliocal_reloads_refused_total",
+			Help: "Configuration reloads refused (invalid configuration) or failed (build error); the previous feeds stay.",
+		}),
 	}
 	for _, c := range []prometheus.Collector{m.requests, m.requestSeconds, m.refreshSeconds, m.refreshes,
-		m.lastSuccess, m.lastOK, m.feeds, m.events, m.adhocCache, m.adhocSeconds} {
+		m.lastSuccess, m.lastOK, m.feeds, m.events, m.adhocCache, m.adhocSeconds, m.reloadsRefused} {
 		if err := reg.Register(c); err != nil {
 			return nil, fmt.Errorf("serve: registering metrics: %w", err)
 		}

@@ -168,6 +168,10 @@ type Server struct {
 	lastAttempt time.Time
 	lastSuccess time.Time
 	lastErr     error
+	// reloadErr is why the last configuration reload did not take effect
+	// (nil once a reload has succeeded); reloadAt is when it was refused.
+	reloadErr error
+	reloadAt  time.Time
 
 	runMu   sync.Mutex
 	running bool
@@ -304,7 +308,26 @@ func (s *Server) Reload(ctx context.Context, build BuildFunc) error {
 	if build == nil {
 		return errors.New("serve: Reload: nil build function")
 	}
-	return s.refresh(ctx, triggerReload, build)
+	err := s.refresh(ctx, triggerReload, build)
+	if err != nil {
+		s.RefuseReload(fmt.Errorf("reload failed: %w", err))
+		return err
+	}
+	s.healthMu.Lock()
+	s.reloadErr, s.reloadAt = nil, time.Time{}
+	s.healthMu.Unlock()
+	return nil
+}
+
+// RefuseReload records a configuration reload that was refused before any
+// build (the new file is invalid): it is counted in
+// heliocal_reloads_refused_total, and /healthz reports "degraded" with err
+// as the reason until a reload succeeds. The served feeds are not touched.
+func (s *Server) RefuseReload(err error) {
+	s.metrics.reloadsRefused.Inc()
+	s.healthMu.Lock()
+	s.reloadErr, s.reloadAt = err, s.now()
+	s.healthMu.Unlock()
 }
 
 // refresh runs a build (the current function, or next if non-nil) and swaps
@@ -325,7 +348,7 @@ func (s *Server) refresh(ctx context.Context, trigger string, next BuildFunc) (e
 	s.lastAttempt = start
 	s.lastErr = err
 	if err == nil {
-		s.lastSuccess = time.Now()
+		s.lastSuccess = s.now()
 	}
 	s.healthMu.Unlock()
 

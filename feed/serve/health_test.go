@@ -1,0 +1,94 @@
+package serve
+
+import (
+	"context"
+	"encoding/json"
+	"errors"
+	"strings"
+	"testing"
+	"time"
+
+	"github.com/prometheus/client_golang/prometheus"
+
+	"heliocal/feed/publish"
+)
+
+// /healthz says "degraded", with the reason, after a refused reload (until
+// a reload succeeds) and while the feeds are older than two refresh
+// periods; /metrics counts the refused reloads. The clock is injected.
+func TestHealthDegraded(t *testing.T) {
+	reg := prometheus.NewRegistry()
+	b := &builder{b: testBundle("a")}
+	s, err := New(Options{Build: b.build, Logger: quiet(), Registerer: reg, Gatherer: reg,
+		Schedule: "15 3 * * *", ScheduleZone: time.UTC})
+	if err != nil {
+		t.Fatal(err)
+	}
+	clock := time.Date(2026, 12, 2, 3, 15, 0, 0, time.UTC)
+	s.now = func() time.Time { return clock }
+	if err := s.Refresh(t.Context()); err != nil {
+		t.Fatal(err)
+	}
+	h := s.Handler()
+	check := func(when, wantStatus string, wantReasons ...string) {
+		t.Helper()
+		r := get(t, h, "GET", "/healthz")
+		var hb health
+		if err := json.Unmarshal([]byte(body(t, r)), &hb); err != nil {
+			t.Fatal(err)
+		}
+		if r.StatusCode != 200 || hb.Status != wantStatus || len(hb.Reasons) != len(wantReasons) {
+			t.Errorf("%s: healthz %d %q %q, want 200 %q with %d reasons", when, r.StatusCode, hb.Status, hb.Reasons, wantStatus, len(wantReasons))
+			return
+		}
+		for i, want := range wantReasons {
+			if !strings.Contains(hb.Reasons[i], want) {
+				t.Errorf("%s: reason %q does not say %q", when, hb.Reasons[i], want)
+			}
+		}
+	}
+	refused := func(want string) {
+		t.Helper()
+		if out := body(t, get(t, h, "GET", "/metrics")); !strings.Contains(out, "heliocal_reloads_refused_total "+want+"\n") {
+			t.Errorf("/metrics lacks heliocal_reloads_refused_total %s", want)
+		}
+	}
+	check("after a build", "ok")
+	refused("0")
+
+	s.RefuseReload(errors.New("heliocal.yaml: sites[0].latitude: 95: must be within -90..90\nmore lines"))
+	check("after a refused reload", "degraded",
+		"configuration reload refused at 2026-12-02T03:15:00Z, still serving the previous configuration: heliocal.yaml: sites[0].latitude: 95: must be within -90..90")
+	refused("1")
+	// A scheduled refresh of the old configuration does not hide it.
+	if err := s.Refresh(t.Context()); err != nil {
+		t.Fatal(err)
+	}
+	check("after a refresh", "degraded", "reload refused")
+
+	err = s.Reload(t.Context(), func(context.Context) (*publish.Bundle, error) { return nil, errors.New("ical: encoder failed") })
+	if err == nil {
+		t.Fatal("a failing reload succeeded")
+	}
+	refused("2")
+	if err := s.Refresh(t.Context()); err != nil {
+		t.Fatal(err)
+	}
+	check("after a failed reload", "degraded", "reload failed: ical: encoder failed")
+
+	if err := s.Reload(t.Context(), b.build); err != nil {
+		t.Fatal(err)
+	}
+	check("after a good reload", "ok")
+	refused("2")
+
+	// The schedule runs every 24 h: feeds 47 h old are fine, 49 h old are not.
+	clock = clock.Add(47 * time.Hour)
+	check("47 h after the last build", "ok")
+	clock = clock.Add(2 * time.Hour)
+	check("49 h after the last build", "degraded", "feeds last built 49h0m0s ago, more than two refresh periods (24h0m0s each)")
+	if err := s.Refresh(t.Context()); err != nil {
+		t.Fatal(err)
+	}
+	check("after a refresh", "ok")
+}

@@ -280,9 +280,17 @@ func (tr *track) extrema(st *site, a, b float64) []extremum {
 }
 
 // refineExtremum finds the altitude extremum near the meridian passage tp.
+// Near a pole the day's change of declination moves the extremum far from
+// the meridian (about 39° of hour angle at 89.9° for the Sun at an
+// equinox); when Newton's method would leave the meridian by more than
+// maxShift the extremum is found by golden-section search instead, over
+// hour angles within ±0.45π of the passage, where the altitude is concave
+// (upper) or convex (lower), so that a maximum grazing a threshold by a
+// thousandth of a degree is not lost. Successive extrema stay in order:
+// each lies within a quarter turn of its own passage.
 func (tr *track) refineExtremum(st *site, tp float64, upper bool) extremum {
 	const eps = 60.0 // s
-	maxShift := 0.2 * math.Pi / tr.rate
+	maxShift := 0.45 * math.Pi / tr.rate
 	t := tp
 	y0 := tr.sinAltitude(st, t)
 	for range 12 {
@@ -297,7 +305,7 @@ func (tr *track) refineExtremum(st *site, tp float64, upper bool) extremum {
 			step = math.Copysign(3*3600, step)
 		}
 		if math.Abs(t+step-tp) > maxShift {
-			break
+			return tr.goldenExtremum(st, tp-maxShift, tp+maxShift, upper)
 		}
 		if math.Abs(step) < 60 {
 			// Newton's error is now below 0.1 s: take the step and its
@@ -308,6 +316,33 @@ func (tr *track) refineExtremum(st *site, tp float64, upper bool) extremum {
 		y0 = tr.sinAltitude(st, t)
 	}
 	return extremum{t: t, sinH: y0, upper: upper}
+}
+
+// goldenExtremum returns the maximum (upper) or minimum of the altitude in
+// [a, b] (Unix s) by golden-section search to 0.1 s, for an altitude that is
+// concave (upper) or convex there; an end point when it is monotonic.
+func (tr *track) goldenExtremum(st *site, a, b float64, upper bool) extremum {
+	sign := 1.0
+	if !upper {
+		sign = -1
+	}
+	f := func(t float64) float64 { return sign * tr.sinAltitude(st, t) }
+	const r = 0.6180339887498949 // (√5 − 1)/2
+	c, d := b-r*(b-a), a+r*(b-a)
+	fc, fd := f(c), f(d)
+	for b-a > 0.1 {
+		if fc > fd {
+			b, d, fd = d, c, fc
+			c = b - r*(b-a)
+			fc = f(c)
+		} else {
+			a, c, fc = c, d, fd
+			d = a + r*(b-a)
+			fd = f(d)
+		}
+	}
+	t := 0.5 * (a + b)
+	return extremum{t: t, sinH: tr.sinAltitude(st, t), upper: upper}
 }
 
 // crossing is one threshold crossing, Unix seconds.

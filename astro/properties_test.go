@@ -163,7 +163,7 @@ func TestCrossingsAgainstScan(t *testing.T) {
 	from := time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC)
 	to := from.AddDate(1, 0, 0)
 	const step = 120.0
-	for _, lat := range []float64{-89, -80, -70, -66.5, -45, 0, 35, 48.5, 60, 66, 68, 72, 78, 85, 89} {
+	for _, lat := range []float64{-89.9, -89, -80, -70, -66.5, -45, 0, 35, 48.5, 60, 66, 68, 72, 78, 85, 89, 89.9} {
 		for _, lon := range []float64{-179.9, 179.9, 16.4} {
 			o := Observer{Latitude: lat, Longitude: lon}
 			st := newSite(o)

@@ -1,6 +1,7 @@
 package astro
 
 import (
+	"context"
 	"errors"
 	"math"
 	"strconv"
@@ -283,5 +284,47 @@ func TestCrossQuarters(t *testing.T) {
 	}
 	if _, err := SolarLongitudeTime(2027, math.NaN()); err == nil {
 		t.Error("NaN longitude: no error")
+	}
+}
+
+// TestGrazingSunrise: at 89.9° N on 2027-03-18 the Sun's upper limb clears
+// the horizon by less than 0.01° (its centre peaks at about −0.825° against
+// the rise/set altitude −0.8333°), about 40° of hour angle away from the
+// meridian. The search must find that maximum and the sunrise and sunset
+// around it. Check values: the independent ephemeris value given in the bug
+// report, sunrise 12:04:22 and sunset 15:37:37 UTC (the report names the
+// latitude; its times fit longitude 15° E, where the peak falls at 13:51
+// UTC). On a graze the altitude changes by only about 0.01° an hour at the
+// crossings, so 60 s of time is 0.5″ of altitude: the tolerance.
+func TestGrazingSunrise(t *testing.T) {
+	day := time.Date(2027, 3, 18, 0, 0, 0, 0, time.UTC)
+	e, err := NewEphemeris(day.AddDate(0, 0, -3), day.AddDate(0, 0, 3))
+	if err != nil {
+		t.Fatal(err)
+	}
+	o := Observer{Latitude: 89.9, Longitude: 15}
+	days, err := e.SunDays(context.Background(), o, o.RiseSetAltitude(), time.UTC, day, day)
+	if err != nil {
+		t.Fatal(err)
+	}
+	d := days[0]
+	if d.State != Crosses || len(d.Rising) == 0 || len(d.Setting) == 0 {
+		t.Fatalf("2027-03-18 at 89.9° N: state %s, rising %v, setting %v; want a sunrise and a sunset", d.State, d.Rising, d.Setting)
+	}
+	for _, c := range []struct {
+		got  time.Time
+		want string
+	}{{d.Rising[0], "12:04:22"}, {d.Setting[0], "15:37:37"}} {
+		want, _ := time.Parse(time.DateTime, "2027-03-18 "+c.want)
+		if diff := c.got.Sub(want).Abs(); diff > time.Minute {
+			t.Errorf("%s, want %s UTC: off by %s", c.got.Format("15:04:05"), c.want, diff)
+		}
+	}
+	peak, err := e.SunAltitude(o, d.Rising[0].Add(d.Setting[0].Sub(d.Rising[0])/2))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if clear := peak - o.RiseSetAltitude(); !(clear > 0 && clear < 0.01) {
+		t.Errorf("peak %.4f°: clears the threshold by %.4f°, want a graze under 0.01°", peak, clear)
 	}
 }

@@ -26,9 +26,9 @@ import (
 const eclipseHalfWindow = 6 * 3600
 
 // eclipseNodes is the number of Chebyshev nodes (and terms) of each fit.
-// With 12 terms over 12 h the fits reproduce direct evaluation to better
+// With 9 terms over 12 h the fits reproduce direct evaluation to better
 // than 1e-8 Earth radii (6 cm) and 1e-8 rad (0.002″) (TestEclipseFit).
-const eclipseNodes = 12
+const eclipseNodes = 9
 
 // chebSet is a set of Chebyshev series sharing one interval [a, b] (Unix
 // seconds): coef[j] is the series of quantity j.

@@ -13,10 +13,10 @@ import (
 //
 //   - solar contacts: the library's Moon radius (1737.4 km, k = 0.27240)
 //     against our k = 0.2725076, and its own ΔT: a second or two. Measured
-//     at most 1.1 s; tolerance 5 s.
+//     at most 1.5 s; tolerance 5 s.
 //   - solar maximum: the least distance from the axis is a flat minimum (a
 //     shallow eclipse's magnitude hardly changes for minutes), so its
-//     instant is ill-defined by seconds: measured at most 13 s; tolerance
+//     instant is ill-defined by seconds: measured at most 12 s; tolerance
 //     20 s. Magnitude and obscuration: measured within 0.0001; tolerance
 //     0.001.
 //   - when the maximum happens with the Sun below the horizon the library
@@ -26,7 +26,7 @@ import (
 //     within 1° of the horizon, the library's instant must lie between our
 //     contacts and within 15 minutes of our sunrise or sunset.
 //   - lunar contacts: the library's own shadow enlargement against our
-//     Danjon 1/85 (see eclipse_lunar.go): measured within 4 s; tolerance 10
+//     Danjon 1/85 (see eclipse_lunar.go): measured within 4.1 s; tolerance 10
 //     s, and 30 s for the umbral contacts of eclipses with an umbral
 //     magnitude below 0.1, where the Moon grazes the umbra and a 1″ change
 //     of a radius moves the contact by many seconds (measured 14 s).

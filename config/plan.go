@@ -326,7 +326,7 @@ func (ks *KindSpec) validateOptions(ps *problems, p string) {
 		ps.add(p+".min_duration", ks.MinDuration.String(), "must be within 0..24h", `e.g. "45m"`)
 	} else if md != 0 && !ks.Kind.IsSpan() {
 		ps.add(p+".min_duration", ks.MinDuration.String(), fmt.Sprintf("has no meaning for %s: its events have no length", ks.Kind.String()),
-			"use it on dark-window, golden-hour, blue-hour or lighting")
+			"use it on dark-window, golden-hour, blue-hour, lighting or the eclipses")
 	}
 	checkFilter(ps, p, ks.Weekdays, ks.Months)
 	lighting := ks.Kind.Name == KindLighting

@@ -137,3 +137,29 @@ func TestEclipseAtSunset(t *testing.T) {
 		t.Errorf("title %q", es[0].Title)
 	}
 }
+
+// min_duration applies to eclipses like any span: at Vienna in 2026–2035 the
+// solar eclipses last from under an hour to over two; a floor of 2 h keeps
+// only the longer ones.
+func TestEclipseMinDuration(t *testing.T) {
+	s := site(t, "vienna", 48.21, 16.37, "Europe/Vienna")
+	k := mustKinds(t, "solar-eclipse")[0]
+	sk := sky(t, "2026-01-01", "2035-12-31")
+	all, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{{Kind: k}}, date("2026-01-01"), date("2035-12-31"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	kept, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{{Kind: k, MinDuration: config.Duration(2 * time.Hour)}}, date("2026-01-01"), date("2035-12-31"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	long := 0
+	for _, e := range all {
+		if e.End.Sub(e.Start) >= 2*time.Hour {
+			long++
+		}
+	}
+	if long == 0 || long == len(all) || len(kept) != long {
+		t.Errorf("%d eclipses, %d of 2 h or more, %d kept", len(all), long, len(kept))
+	}
+}

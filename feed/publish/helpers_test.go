@@ -167,16 +167,31 @@ func tempNames(t testing.TB, dir string) []string {
 // entry, and the number of entries.
 func listedMismatches(t testing.TB, dir string) ([]string, int) {
 	t.Helper()
-	raw, err := os.ReadFile(filepath.Join(dir, FeedsJSONName))
+	var fj feedsJSON
+	bad := listedIn(t, dir, FeedsJSONName, &fj)
+	return bad, len(fj.Feeds)
+}
+
+// listedMismatchesIn checks the same of a listing named name (feeds.json or
+// a shard manifest, which has the same "feeds" list); a missing one lists
+// nothing.
+func listedMismatchesIn(t testing.TB, dir, name string) []string {
+	t.Helper()
+	var fj feedsJSON
+	return listedIn(t, dir, name, &fj)
+}
+
+func listedIn(t testing.TB, dir, name string, fj *feedsJSON) []string {
+	t.Helper()
+	raw, err := os.ReadFile(filepath.Join(dir, name))
 	if errors.Is(err, fs.ErrNotExist) {
-		return nil, 0
+		return nil
 	}
 	if err != nil {
 		t.Fatal(err)
 	}
-	var fj feedsJSON
-	if err := json.Unmarshal(raw, &fj); err != nil {
-		return []string{fmt.Sprintf("feeds.json unreadable: %v", err)}, 0
+	if err := json.Unmarshal(raw, fj); err != nil {
+		return []string{fmt.Sprintf("%s unreadable: %v", name, err)}
 	}
 	var bad []string
 	for _, f := range fj.Feeds {
@@ -185,10 +200,10 @@ func listedMismatches(t testing.TB, dir string) ([]string, int) {
 		case err != nil:
 			bad = append(bad, fmt.Sprintf("%s: %v", f.File, err))
 		case len(b) != f.Bytes:
-			bad = append(bad, fmt.Sprintf("%s: %d bytes on disk, feeds.json says %d", f.File, len(b), f.Bytes))
+			bad = append(bad, fmt.Sprintf("%s: %d bytes on disk, %s says %d", f.File, len(b), name, f.Bytes))
 		case checksum(b) != f.Checksum:
-			bad = append(bad, fmt.Sprintf("%s: sha256 %.12s… on disk, feeds.json says %.12s…", f.File, checksum(b), f.Checksum))
+			bad = append(bad, fmt.Sprintf("%s: sha256 %.12s… on disk, %s says %.12s…", f.File, checksum(b), name, f.Checksum))
 		}
 	}
-	return bad, len(fj.Feeds)
+	return bad
 }

@@ -20,9 +20,10 @@ var killRevisions = []string{"", " (revised)", " (third edition)"}
 
 // Environment of the child process of TestKilledPublishKeepsListingTrue.
 const (
-	killDirEnv = "HELIOCAL_PUBLISH_KILL_DIR"
-	killAtEnv  = "HELIOCAL_PUBLISH_KILL_AT"  // stop at this point; "loop": publish forever
-	killRevEnv = "HELIOCAL_PUBLISH_KILL_REV" // index into killRevisions
+	killDirEnv   = "HELIOCAL_PUBLISH_KILL_DIR"
+	killAtEnv    = "HELIOCAL_PUBLISH_KILL_AT"    // stop at this point; "loop": publish forever
+	killRevEnv   = "HELIOCAL_PUBLISH_KILL_REV"   // index into killRevisions
+	killShardEnv = "HELIOCAL_PUBLISH_KILL_SHARD" // i/n, or empty for a whole run
 )
 
 // stallingFile writes half of the data, tells the parent test, and hangs:
@@ -85,7 +86,14 @@ func killChild(t *testing.T, dir string) {
 	}
 	at, _ := strconv.Atoi(os.Getenv(killAtEnv))
 	w, _ := stoppingWriter(dir, at)
-	_, err := Publish(context.Background(), Calendars(testCalendars(t, killRevisions[rev])...), testOptions(), w)
+	opts := testOptions()
+	if sh := os.Getenv(killShardEnv); sh != "" {
+		var err error
+		if opts.Shard, err = ParseShard(sh); err != nil {
+			t.Fatal(err)
+		}
+	}
+	_, err := Publish(context.Background(), Calendars(testCalendars(t, killRevisions[rev])...), opts, w)
 	fmt.Printf("finished: %v\n", err)
 	os.Exit(0)
 }
@@ -130,6 +138,7 @@ func TestKilledPublishKeepsListingTrue(t *testing.T) {
 	t.Logf("a run has %d points a kill can stop it at", points)
 
 	dir := t.TempDir()
+	whole := dir
 	publishTo(t, dir, killRevisions[0], testOptions())
 	start := func(env ...string) (*exec.Cmd, *bufio.Scanner) {
 		cmd := exec.Command(os.Args[0], "-test.run=^TestKilledPublishKeepsListingTrue$", "-test.count=1")
@@ -234,13 +243,49 @@ func TestKilledPublishKeepsListingTrue(t *testing.T) {
 	}
 	t.Logf("kills: %v", stopped)
 
+	// Shards of one run into a second directory, killed at chosen points:
+	// feeds.json and every shard manifest stay true.
+	sharded := t.TempDir()
+	for i := range 2 {
+		opts := testOptions()
+		opts.Shard = Shard{Index: i, Count: 2}
+		publishTo(t, sharded, killRevisions[0], opts)
+	}
+	dir = sharded
+	for trial := range 12 {
+		last = (last + 1 + rng.IntN(len(killRevisions)-1)) % len(killRevisions)
+		shard := fmt.Sprintf("%d/2", rng.IntN(2))
+		at := 1 + rng.IntN(points)
+		cmd, sc := start(killAtEnv+"="+strconv.Itoa(at), killRevEnv+"="+strconv.Itoa(last), killShardEnv+"="+shard)
+		what := waitFor(sc, "stopped", "finished")
+		cmd.Process.Kill()
+		cmd.Wait()
+		if strings.HasPrefix(what, "finished") && what != "finished: <nil>" {
+			t.Fatalf("sharded trial %d: shard %s %s", trial, shard, what)
+		}
+		for _, name := range append([]string{FeedsJSONName}, ManifestName(Shard{0, 2}), ManifestName(Shard{1, 2})) {
+			if bad := listedMismatchesIn(t, sharded, name); len(bad) > 0 {
+				t.Errorf("sharded trial %d (shard %s killed: %s): %s lists files that are not on disk as listed:\n%s",
+					trial, shard, what, name, strings.Join(bad, "\n"))
+			}
+		}
+	}
+	for i := range 2 {
+		opts := testOptions()
+		opts.Shard = Shard{Index: i, Count: 2}
+		publishTo(t, sharded, killRevisions[1], opts)
+	}
+	if bad, n := listedMismatches(t, sharded); len(bad) > 0 || n != 3 {
+		t.Errorf("after both shards ran again feeds.json lists %d feeds, mismatches %v", n, bad)
+	}
+
 	// The next night: leftovers are old enough to be removed, and the run
 	// completes the job.
-	w = &Writer{Dir: dir, now: func() time.Time { return time.Now().Add(DefaultTempMaxAge + time.Minute) }}
+	w = &Writer{Dir: whole, now: func() time.Time { return time.Now().Add(DefaultTempMaxAge + time.Minute) }}
 	if _, err := Publish(context.Background(), Calendars(testCalendars(t, killRevisions[1])...), testOptions(), w); err != nil {
 		t.Fatal(err)
 	}
-	if tmp := tempNames(t, dir); len(tmp) != 0 {
+	if tmp := tempNames(t, whole); len(tmp) != 0 {
 		t.Errorf("leftovers not removed: %v", tmp)
 	}
 	want, err := Render(context.Background(), Calendars(testCalendars(t, killRevisions[1])...), testOptions())
@@ -248,11 +293,11 @@ func TestKilledPublishKeepsListingTrue(t *testing.T) {
 		t.Fatal(err)
 	}
 	for _, f := range want.Files {
-		if !bytes.Equal(snapshot(t, dir)[f.Name], f.Data) {
+		if !bytes.Equal(snapshot(t, whole)[f.Name], f.Data) {
 			t.Errorf("%s not completed by the next run", f.Name)
 		}
 	}
-	if bad, n := listedMismatches(t, dir); len(bad) > 0 || n != 3 {
+	if bad, n := listedMismatches(t, whole); len(bad) > 0 || n != 3 {
 		t.Errorf("after the next run feeds.json lists %d feeds, mismatches %v", n, bad)
 	}
 }

@@ -179,7 +179,7 @@ func (c *collector) clip(e *Event, spec config.KindSpec) {
 
 // hmShort writes a local clock time as "16:42".
 func hmShort(t time.Time, loc *time.Location) string {
-	return t.Round(time.Minute).In(loc).Format("15:04")
+	return ToMinute(t).In(loc).Format("15:04")
 }
 
 // describeLighting gives the title and description of a lamp period.

@@ -189,6 +189,13 @@ func waxing(e Event) string {
 	return "waning"
 }
 
+// moonHorizonMeaning is the definition line of moonrise and moonset; %s is
+// the refraction used.
+var moonHorizonMeaning = map[string]string{
+	"moonrise": "The Moon's upper limb appears on the horizon as seen from the site (%s).",
+	"moonset":  "The Moon's upper limb disappears below the horizon as seen from the site (%s).",
+}
+
 // describeMoon gives the title and description of a Moon event.
 func describeMoon(s *siteInfo, e Event) (string, string) {
 	loc := s.TimeZone.Location
@@ -199,24 +206,28 @@ func describeMoon(s *siteInfo, e Event) (string, string) {
 	case "new-moon", "first-quarter", "full-moon", "last-quarter":
 		meaning := map[string]string{
 			"new-moon":      "the Moon passes between the Earth and the Sun and is not seen; the darkest nights of the month are around now",
-			"first-quarter": "the Moon is 90° east of the Sun, half lit, and sets around midnight",
-			"full-moon":     "the Moon is opposite the Sun, fully lit, and up all night",
-			"last-quarter":  "the Moon is 90° west of the Sun, half lit, and rises around midnight",
+			"first-quarter": "the Moon is 90° east of the Sun, half lit, high in the evening sky and setting around midnight",
+			"full-moon":     "the Moon is opposite the Sun and fully lit; away from the polar regions it rises around sunset and sets around sunrise",
+			"last-quarter":  "the Moon is 90° west of the Sun, half lit, rising around midnight and high in the morning sky",
 		}[e.Kind.Name]
-		fmt.Fprintf(&b, "%s at %s (%s UTC): %s.", title, at, e.Start.UTC().Round(time.Second).Format("2006-01-02 15:04:05"), meaning)
+		fmt.Fprintf(&b, "%s at %s (%s UTC): %s.", title, at, ToSecond(e.Start).UTC().Format("2006-01-02 15:04:05"), meaning)
 		b.WriteString(FutureNote(e.Start))
 	case "moonrise", "moonset":
 		title = fmt.Sprintf("%s (%s, %s lit)", title, waxing(e), percent(e.Illuminated))
-		fmt.Fprintf(&b, "%s at %s, %s: the Moon is %s, %s lit.\nThe Moon %s.\nUpper limb of the Moon on the horizon with %s, seen from the site.",
+		fmt.Fprintf(&b, "%s at %s, %s: the Moon is %s, %s lit.\nThe Moon %s.\n"+moonHorizonMeaning[e.Kind.Name],
 			plainNames[e.Kind.Name], at, s.where, waxing(e), percent(e.Illuminated), bearing(e), s.refraction)
 	case "moon-transit":
 		title = fmt.Sprintf("Moon highest, %s up", degrees(e.Altitude))
-		fmt.Fprintf(&b, "The Moon crosses the meridian at %s, %s, %s above the horizon (%s, %s lit).",
-			at, s.where, degrees(e.Altitude), waxing(e), percent(e.Illuminated))
+		fmt.Fprintf(&b, "The Moon crosses the meridian at %s, %s, at %s altitude", at, s.where, degrees(e.Altitude))
+		if e.Altitude < 0 {
+			b.WriteString(", below the horizon")
+		}
+		fmt.Fprintf(&b, " (%s, %s lit).", waxing(e), percent(e.Illuminated))
 	case "dark-window":
-		title = fmt.Sprintf("Dark sky, %s", amount(e.End.Sub(e.Start).Round(time.Minute)))
+		length := amount(ToSecond(e.End).Sub(ToSecond(e.Start)).Round(time.Minute))
+		title = fmt.Sprintf("Dark sky, %s", length)
 		fmt.Fprintf(&b, "Dark sky from %s to %s (%s), %s: the Sun is more than 18° below the horizon and ",
-			at, localClock(e.End, loc), amount(e.End.Sub(e.Start).Round(time.Minute)), s.where)
+			at, localClock(e.End, loc), length, s.where)
 		if e.Illuminated > 0 {
 			fmt.Fprintf(&b, "the Moon is down or less than %s lit.", percent(e.Illuminated))
 		} else {
@@ -248,7 +259,7 @@ func describeMoonNote(s *siteInfo, n Note) (string, string) {
 		if n.State == astro.AlwaysAbove {
 			title = "No dark sky tonight: the Sun stays less than 18° below the horizon"
 		} else {
-			title = "No dark sky tonight: the Moon is up and bright all night"
+			title = "No dark sky tonight: the Moon is up and bright all through the astronomical night"
 		}
 	default:
 		title = n.Kind.String()

@@ -30,7 +30,7 @@ func dirString(d astro.Direction) string {
 // localClock formats an instant as site-local clock time with the zone
 // abbreviation, e.g. "06:47:12 CET".
 func localClock(t time.Time, loc *time.Location) string {
-	lt := t.Round(time.Second).In(loc)
+	lt := ToSecond(t).In(loc)
 	h, m, sec := lt.Clock()
 	zone, _ := lt.Zone()
 	b := make([]byte, 0, 9+len(zone))
@@ -43,15 +43,15 @@ func twoDigits(n int) string {
 	return string([]byte{byte('0' + n/10), byte('0' + n%10)})
 }
 
-// hm formats a duration as "9 h 25 m" (rounded to the minute).
+// hm formats a duration as "9 h 25 min" (rounded to the minute).
 func hm(d time.Duration) string {
 	d = d.Round(time.Minute)
 	h := int(d / time.Hour)
 	m := int((d % time.Hour) / time.Minute)
-	return strconv.Itoa(h) + " h " + twoDigits(m) + " m"
+	return strconv.Itoa(h) + " h " + twoDigits(m) + " min"
 }
 
-// change formats a signed day-length change as "+1 m 30 s" or "−2 m 05 s".
+// change formats a signed day-length change as "+1 min 30 s" or "−2 min 05 s".
 func change(d time.Duration) string {
 	sign := "+"
 	if d < 0 {
@@ -60,7 +60,7 @@ func change(d time.Duration) string {
 	d = d.Round(time.Second)
 	m := int(d / time.Minute)
 	s := int((d % time.Minute) / time.Second)
-	return sign + strconv.Itoa(m) + " m " + twoDigits(s) + " s"
+	return sign + strconv.Itoa(m) + " min " + twoDigits(s) + " s"
 }
 
 // days formats a long duration as "92 d 18 h".
@@ -137,13 +137,22 @@ var plainNames = map[string]string{
 	"lunar-eclipse":     "Lunar eclipse",
 }
 
+// twilightMeaning says what each twilight threshold means (common
+// practice: the almanac offices' definitions of the three twilights).
 var twilightMeaning = map[string]string{
-	"civil-dawn":        "Civil dawn: the Sun's centre rises through 6° below the horizon; outdoor work is possible without lights from now.",
-	"civil-dusk":        "Civil dusk: the Sun's centre sinks through 6° below the horizon; from now outdoor work needs lights.",
-	"nautical-dawn":     "Nautical dawn: the Sun's centre rises through 12° below the horizon; the horizon becomes visible at sea.",
-	"nautical-dusk":     "Nautical dusk: the Sun's centre sinks through 12° below the horizon; the horizon fades at sea.",
-	"astronomical-dawn": "Astronomical dawn: the Sun's centre rises through 18° below the horizon; the sky starts to brighten.",
-	"astronomical-dusk": "Astronomical dusk: the Sun's centre sinks through 18° below the horizon; the sky is fully dark from now.",
+	"civil-dawn":        "Civil dawn: the Sun's centre is rising through 6° below the horizon; from now there is usually light enough for outdoor work without lamps.",
+	"civil-dusk":        "Civil dusk: the Sun's centre is setting through 6° below the horizon; from now outdoor work usually needs lamps.",
+	"nautical-dawn":     "Nautical dawn: the Sun's centre is rising through 12° below the horizon; the sea horizon becomes visible.",
+	"nautical-dusk":     "Nautical dusk: the Sun's centre is setting through 12° below the horizon; the sea horizon fades from view.",
+	"astronomical-dawn": "Astronomical dawn: the Sun's centre is rising through 18° below the horizon; from now the Sun begins to brighten the sky.",
+	"astronomical-dusk": "Astronomical dusk: the Sun's centre is setting through 18° below the horizon; from now the Sun no longer brightens the sky (the Moon and city lights may).",
+}
+
+// horizonMeaning is the definition line of sunrise and sunset; %s is the
+// refraction used.
+var horizonMeaning = map[string]string{
+	"sunrise": "The Sun's upper limb appears on the horizon (%s).\n",
+	"sunset":  "The Sun's upper limb disappears below the horizon (%s).\n",
 }
 
 // categories are the CATEGORIES of a kind: a family word and the kind's name.
@@ -202,8 +211,8 @@ func describe(s *siteInfo, e Event) (string, string) {
 	switch e.Kind.Name {
 	case "sunrise", "sunset":
 		b.WriteString(title + " at " + at + ": the Sun " + bearing(e) + ".\n")
-		b.WriteString("Day length " + hm(e.DayLength) + " (" + change(e.DayChange) + " on the day before).\n")
-		b.WriteString("Upper limb of the Sun on the horizon with " + s.refraction + ".\n")
+		b.WriteString("Day length " + hm(e.DayLength) + " (" + change(e.DayChange) + " from the day before).\n")
+		fmt.Fprintf(&b, horizonMeaning[e.Kind.Name], s.refraction)
 		b.WriteString(cautionLegal)
 	case "civil-dawn", "civil-dusk", "nautical-dawn", "nautical-dusk", "astronomical-dawn", "astronomical-dusk":
 		b.WriteString(title + " at " + at + ".\n" + twilightMeaning[e.Kind.Name])
@@ -214,34 +223,35 @@ func describe(s *siteInfo, e Event) (string, string) {
 		title = fmt.Sprintf("Solar noon, Sun %s high", degrees(e.Altitude))
 		fmt.Fprintf(&b, "Solar noon at %s, %s: the Sun crosses the meridian at %s altitude", at, s.where, degrees(e.Altitude))
 		if e.Altitude < 0 {
-			b.WriteString(" (below the horizon: polar night)")
+			b.WriteString(", its centre below the horizon.")
+		} else {
+			b.WriteString(", its highest of the day.\n" + cautionEyes)
 		}
-		b.WriteString(".\n" + cautionEyes)
-	case "golden-hour", "blue-hour":
+	case "golden-hour":
 		title = title + " (" + partName(e.Part) + ")"
-		lo, hi := "−4°", "+6°"
-		if e.Kind.Name == "blue-hour" {
-			lo, hi = "−6°", "−4°"
-		}
-		b.WriteString(title + " from " + at + " to " + localClock(e.End, loc) + " (" + hm(e.End.Sub(e.Start)) +
-			").\nThe Sun's centre is between " + lo + " and " + hi + ": soft, warm light for photography and events.\n")
+		b.WriteString(title + " from " + at + " to " + localClock(e.End, loc) + " (" + hm(ToSecond(e.End).Sub(ToSecond(e.Start))) +
+			").\nThe Sun's centre is between −4° and +6°: low, warm sunlight and long shadows, for photography and events.\n")
 		b.WriteString(cautionEyes)
+	case "blue-hour":
+		title = title + " (" + partName(e.Part) + ")"
+		b.WriteString(title + " from " + at + " to " + localClock(e.End, loc) + " (" + hm(ToSecond(e.End).Sub(ToSecond(e.Start))) +
+			").\nThe Sun's centre is between 6° and 4° below the horizon: no direct sunlight; an even, deep blue sky, for photography with the lights on.")
 	case "sun-altitude":
-		verb := "rises through"
-		if e.Direction == astro.Setting {
-			verb = "sinks through"
-		}
+		verb := DirectionWord(e) + " through"
 		title = fmt.Sprintf("Sun %s %s", verb, degrees(e.Kind.Altitude))
-		fmt.Fprintf(&b, "The Sun's centre %s %s altitude at %s, %s.\n%s", verb, degrees(e.Kind.Altitude), at, s.where, cautionEyes)
+		fmt.Fprintf(&b, "The Sun's centre is %s %s altitude at %s, %s.", verb, degrees(e.Kind.Altitude), at, s.where)
+		if e.Kind.Altitude > -1 {
+			b.WriteString("\n" + cautionEyes) // the Sun may be in view
+		}
 	case "march-equinox", "june-solstice", "september-equinox", "december-solstice":
 		season := seasonStarted(e.Kind.Name, s.Latitude)
 		fmt.Fprintf(&b, "%s at %s (%s UTC).\nStart of astronomical %s in the %s hemisphere; it lasts %s, until the next equinox or solstice.",
-			title, at, e.Start.UTC().Round(time.Second).Format("2006-01-02 15:04:05"), season, hemisphere(s.Latitude), days(e.SeasonLength))
+			title, at, ToSecond(e.Start).UTC().Format("2006-01-02 15:04:05"), season, hemisphere(s.Latitude), days(e.SeasonLength))
 		b.WriteString(FutureNote(e.Start))
 		title = fmt.Sprintf("%s: %s begins", title, capital(season))
 	case "cross-quarter":
 		fmt.Fprintf(&b, "Cross-quarter day at %s (%s UTC): the Sun reaches ecliptic longitude %s°, midway between %s.\n"+
-			"Farm calendars mark these quarter points of the seasons.", at, e.Start.UTC().Round(time.Second).Format("2006-01-02 15:04:05"), e.Part, crossQuarterBetween[e.Part])
+			"Many farm calendars mark these midpoints of the seasons.", at, ToSecond(e.Start).UTC().Format("2006-01-02 15:04:05"), e.Part, crossQuarterBetween[e.Part])
 		b.WriteString(FutureNote(e.Start))
 	case "perihelion", "aphelion":
 		near := "closest to"
@@ -250,16 +260,16 @@ func describe(s *siteInfo, e Event) (string, string) {
 		}
 		title = fmt.Sprintf("%s: Earth %s the Sun", title, near)
 		fmt.Fprintf(&b, "Earth is %s the Sun at %s (%s UTC): %.6f au (%s km).", near, at,
-			e.Start.UTC().Format("2006-01-02 15:04"), e.Distance, thousands(e.Distance*149597870.7))
+			ToSecond(e.Start).UTC().Format("2006-01-02 15:04:05"), e.Distance, thousands(e.Distance*149597870.7))
 		b.WriteString(FutureNote(e.Start))
 	case "photoperiod":
 		if e.Direction == astro.Rising {
-			title = fmt.Sprintf("Day length reaches %s", amount(e.Kind.DayLength))
+			title = fmt.Sprintf("Day length rising past %s", amount(e.Kind.DayLength))
 		} else {
-			title = fmt.Sprintf("Day length falls below %s", amount(e.Kind.DayLength))
+			title = fmt.Sprintf("Day length falling below %s", amount(e.Kind.DayLength))
 		}
-		fmt.Fprintf(&b, "%s today at %s: the Sun is up for %s (%s on the day before).\n"+
-			"Lighting programs for greenhouses and livestock switch on this threshold.",
+		fmt.Fprintf(&b, "%s today at %s: the Sun is up for %s (%s from the day before), sunrise to sunset.\n"+
+			"Lighting programs for greenhouses and livestock are set by this threshold.",
 			title, s.Name, hm(e.DayLength), change(e.DayChange))
 	case "solar-eclipse", "lunar-eclipse":
 		return describeEclipse(s, e)
@@ -449,8 +459,8 @@ func describeSummary(s *siteInfo, length, delta time.Duration, evs []Event, note
 		b.WriteString(t + ".\n")
 	}
 	for _, e := range evs {
-		fmt.Fprintf(&b, "%s %s\n", plainNames[e.Kind.Name], e.Start.In(loc).Format("15:04 MST"))
+		fmt.Fprintf(&b, "%s %s\n", plainNames[e.Kind.Name], ToMinute(e.Start).In(loc).Format("15:04 MST"))
 	}
-	fmt.Fprintf(&b, "Day length %s (%s on the day before), %s.\n%s", hm(length), change(delta), s.where, cautionLegal)
+	fmt.Fprintf(&b, "Day length %s (%s from the day before), %s.\n%s", hm(length), change(delta), s.where, cautionLegal)
 	return title, b.String()
 }

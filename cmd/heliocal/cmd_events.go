@@ -306,9 +306,22 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 
 const jsonTime = "2006-01-02T15:04:05.000Z07:00"
 
+// The outputs follow feed's one rounding rule: UTC instants to the
+// millisecond, clock times to the nearest second of that.
+
+func utcStamp(t time.Time) string { return feed.ToMillisecond(t).UTC().Format(jsonTime) }
+
+func localStamp(t time.Time, loc *time.Location) string {
+	return feed.ToSecond(t).In(loc).Format(localCSVTime)
+}
+
+func clock(t time.Time, loc *time.Location) string {
+	return feed.ToSecond(t).In(loc).Format("15:04:05")
+}
+
 type jsonEvent struct {
 	Kind  string `json:"kind"`
-	Start string `json:"start"`
+	Start string `json:"start,omitempty"` // none for a date-only event
 	End   string `json:"end,omitempty"`
 	// eclipse fields (max, type, magnitudes, phases), inline
 	*jsonEclipse
@@ -348,13 +361,15 @@ type jsonSite struct {
 func toJSONEvent(e feed.Event) jsonEvent {
 	j := jsonEvent{
 		Kind:      e.Kind.String(),
-		Start:     e.Start.UTC().Format(jsonTime),
-		Direction: dirName(e.Direction),
+		Direction: direction(e),
 		Date:      e.Date.Format(time.DateOnly),
 		Part:      e.Part,
 	}
+	if !e.DateOnly() {
+		j.Start = utcStamp(e.Start)
+	}
 	if !e.End.IsZero() {
-		j.End = e.End.UTC().Format(jsonTime)
+		j.End = utcStamp(e.End)
 	}
 	switch e.Kind.Name {
 	case "solar-noon", "moon-transit":
@@ -414,12 +429,10 @@ func azimuthCell(e feed.Event) string {
 	return strconv.FormatFloat(math.Round(e.Azimuth*100)/100, 'f', 2, 64)
 }
 
-func dirName(d astro.Direction) string {
-	if d == 0 {
-		return ""
-	}
-	return d.String()
-}
+// direction names which way an event crosses its threshold, as every
+// output and the calendar text word it: the Sun "rising" or "setting"
+// through an altitude, day length "rising" or "falling" through a duration.
+func direction(e feed.Event) string { return feed.DirectionWord(e) }
 
 func writeEventsJSON(w io.Writer, s *config.Site, from, to time.Time, events []feed.Event, notes []feed.Note) error {
 	out := struct {
@@ -484,7 +497,12 @@ func writeEventsTable(w io.Writer, s *config.Site, events []feed.Event, notes []
 			continue
 		}
 		e := r.event
-		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\n", e.Date.Format("2006-01-02 Mon"), e.Start.In(loc).Format("15:04:05 MST"), e.Kind, details(e, loc))
+		at := "all day"
+		if !e.DateOnly() {
+			t := feed.ToSecond(e.Start).In(loc)
+			at = t.Format("15:04:05 MST")
+		}
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\n", e.Date.Format("2006-01-02 Mon"), at, e.Kind, details(e, loc))
 	}
 	return tw.Flush()
 }
@@ -512,13 +530,13 @@ func stateText(s astro.State) string {
 func details(e *feed.Event, loc *time.Location) string {
 	var parts []string
 	if !e.End.IsZero() {
-		parts = append(parts, fmt.Sprintf("until %s (%s)", e.End.In(loc).Format("15:04:05"), words(e.End.Sub(e.Start).Round(time.Minute))))
+		parts = append(parts, fmt.Sprintf("until %s (%s)", clock(e.End, loc), words(feed.ToSecond(e.End).Sub(feed.ToSecond(e.Start)).Round(time.Minute))))
 	}
 	if e.Part != "" {
 		parts = append(parts, e.Part)
 	}
 	if e.Direction != 0 && (e.Kind.Name == "sun-altitude" || e.Kind.Name == "photoperiod") {
-		parts = append(parts, dirName(e.Direction))
+		parts = append(parts, direction(*e))
 	}
 	switch e.Kind.Name {
 	case "sunrise", "sunset", "photoperiod", config.KindLighting:

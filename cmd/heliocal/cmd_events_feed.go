@@ -153,12 +153,12 @@ func seconds(d time.Duration) *float64 {
 func toJSONEntry(cal *feed.Calendar, e *feed.Entry) jsonEntry {
 	f := e.Facts
 	j := jsonEntry{Kind: e.Kind, Title: e.Title, Date: e.Date.Format(time.DateOnly), AllDay: e.AllDay,
-		Part: f.Part, Direction: dirName(f.Direction), Note: f.Note, Short: f.Short, NextDay: f.NextDay,
+		Part: f.Part, Direction: feed.DirectionName(e.Kind, f.Direction), Note: f.Note, Short: f.Short, NextDay: f.NextDay,
 		Missing: f.Missing, UID: e.UID, Description: e.Description}
 	if !e.AllDay {
-		j.Start = e.Start.UTC().Format(jsonTime)
+		j.Start = utcStamp(e.Start)
 		if !e.End.IsZero() {
-			j.End = e.End.UTC().Format(jsonTime)
+			j.End = utcStamp(e.End)
 		}
 		alarm := cal.Alarm
 		if e.Alarm != nil {
@@ -219,9 +219,9 @@ func writeEntriesCSV(w io.Writer, cal *feed.Calendar) error {
 		j := toJSONEntry(cal, e)
 		startLocal, endLocal := "", ""
 		if !e.AllDay {
-			startLocal = e.Start.In(loc).Format(localCSVTime)
+			startLocal = localStamp(e.Start, loc)
 			if !e.End.IsZero() {
-				endLocal = e.End.In(loc).Format(localCSVTime)
+				endLocal = localStamp(e.End, loc)
 			}
 		}
 		_ = cw.Write([]string{j.Date, j.Kind, j.Title, yes(j.AllDay), j.Start, j.End, startLocal, endLocal,
@@ -255,9 +255,9 @@ func writeEntriesTable(w io.Writer, s *config.Site, cal *feed.Calendar) error {
 		e := &cal.Entries[i]
 		when := "all day"
 		if !e.AllDay {
-			when = e.Start.In(loc).Format("15:04:05 MST")
+			when = feed.ToSecond(e.Start).In(loc).Format("15:04:05 MST")
 			if !e.End.IsZero() {
-				when += "–" + e.End.In(loc).Format("15:04:05")
+				when += "–" + clock(e.End, loc)
 				if ed := e.End.In(loc); time.Date(ed.Year(), ed.Month(), ed.Day(), 0, 0, 0, 0, time.UTC).After(e.Date) {
 					when += " +1 day"
 				}
@@ -308,11 +308,14 @@ func writeEventsCSV(w io.Writer, s *config.Site, events []feed.Event, notes []fe
 		}
 		e := r.event
 		j := toJSONEvent(*e)
-		endLocal := ""
-		if !e.End.IsZero() {
-			endLocal = e.End.In(loc).Format(localCSVTime)
+		startLocal, endLocal := "", ""
+		if !e.DateOnly() {
+			startLocal = localStamp(e.Start, loc)
 		}
-		_ = cw.Write([]string{j.Date, j.Kind, j.Start, j.End, j.Direction, e.Start.In(loc).Format(localCSVTime), endLocal, "",
+		if !e.End.IsZero() {
+			endLocal = localStamp(e.End, loc)
+		}
+		_ = cw.Write([]string{j.Date, j.Kind, j.Start, j.End, j.Direction, startLocal, endLocal, "",
 			"", j.Part, num(j.Altitude), num(j.Distance), num(j.DayLength), num(j.DayChange), num(j.Lit), num(j.Lamp),
 			yes(j.Short), num(j.Uncertainty), azimuthCell(*e)})
 	}
@@ -336,12 +339,12 @@ func writeEventsICS(ctx context.Context, w io.Writer, s *config.Site, specs []co
 	return err
 }
 
-// change writes a signed duration as "+1 m 30 s" or "−2 m 05 s".
+// change writes a signed duration as "+1 min 30 s" or "−2 min 05 s".
 func change(d time.Duration) string {
 	sign := "+"
 	if d < 0 {
 		sign, d = "−", -d
 	}
 	d = d.Round(time.Second)
-	return fmt.Sprintf("%s%d m %02d s", sign, int(d/time.Minute), int(d%time.Minute/time.Second))
+	return fmt.Sprintf("%s%d min %02d s", sign, int(d/time.Minute), int(d%time.Minute/time.Second))
 }

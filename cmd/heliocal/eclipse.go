@@ -33,7 +33,7 @@ func eclipseJSON(e feed.Event) *jsonEclipse {
 		if t.IsZero() {
 			return ""
 		}
-		return t.UTC().Format(jsonTime)
+		return utcStamp(t)
 	}
 	round := func(v float64) *float64 {
 		r := math.Round(v*1e4) / 1e4
@@ -62,16 +62,16 @@ func eclipseDetails(e *feed.Event, loc *time.Location) []string {
 			if h.Direction == astro.Setting {
 				verb = "sets"
 			}
-			parts = append(parts, fmt.Sprintf("%s %s %s", body, verb, h.Time.In(loc).Format("15:04:05")))
+			parts = append(parts, fmt.Sprintf("%s %s %s", body, verb, clock(h.Time, loc)))
 		}
 	}
 	switch {
 	case e.Solar != nil:
 		l := e.Solar
-		parts = append(parts, l.Type.String(), fmt.Sprintf("max %s", l.Max.Time.In(loc).Format("15:04:05")),
+		parts = append(parts, l.Type.String(), fmt.Sprintf("max %s", clock(l.Max.Time, loc)),
 			fmt.Sprintf("magnitude %.3f", l.Magnitude), fmt.Sprintf("obscuration %.3f", l.Obscuration))
 		if !l.C2.IsZero() {
-			parts = append(parts, fmt.Sprintf("%s %s–%s", l.Type, l.C2.Time.In(loc).Format("15:04:05"), l.C3.Time.In(loc).Format("15:04:05")))
+			parts = append(parts, fmt.Sprintf("%s %s–%s", l.Type, clock(l.C2.Time, loc), clock(l.C3.Time, loc)))
 		}
 		if !l.Max.Up {
 			parts = append(parts, "max below the horizon")
@@ -79,7 +79,7 @@ func eclipseDetails(e *feed.Event, loc *time.Location) []string {
 		horizon(l.Horizon, "Sun")
 	case e.Lunar != nil:
 		l := e.Lunar.Eclipse
-		parts = append(parts, l.Type.String(), fmt.Sprintf("max %s", l.Max.In(loc).Format("15:04:05")),
+		parts = append(parts, l.Type.String(), fmt.Sprintf("max %s", clock(l.Max, loc)),
 			fmt.Sprintf("umbral magnitude %.3f", l.UmbralMagnitude))
 		if !e.Lunar.Max.Up {
 			parts = append(parts, "max below the horizon")

@@ -408,8 +408,8 @@ func (w *writer) event(i int, e *feed.Entry) (*vevent, error) {
 			return nil, fmt.Errorf("End %s is before Start %s",
 				e.End.UTC().Format(time.RFC3339), e.Start.UTC().Format(time.RFC3339))
 		}
-		start := e.Start.UTC().Round(time.Second)
-		end := e.End.UTC().Round(time.Second)
+		start := feed.ToSecond(e.Start).UTC()
+		end := feed.ToSecond(e.End).UTC()
 		if !end.After(start) {
 			end = start.Add(instantLength)
 		}

@@ -1,0 +1,141 @@
+package feed
+
+import (
+	"context"
+	"regexp"
+	"strings"
+	"testing"
+	"time"
+
+	"heliocal/config"
+)
+
+// templateOf reduces a description to its wording: numbers, clock times,
+// the site and the kind's own name are taken out, so two kinds that only
+// fill in different values of one text reduce to the same template.
+func templateOf(e Event, desc string) string {
+	desc = strings.ReplaceAll(desc, plainNames[e.Kind.Name], "<kind>")
+	desc = strings.ReplaceAll(desc, strings.ToLower(plainNames[e.Kind.Name]), "<kind>")
+	return regexp.MustCompile(`[−+-]?[0-9][0-9.,:]*`).ReplaceAllString(desc, "#")
+}
+
+// Every kind has its own text: no two kinds share a description template by
+// accident (the blue hour once read as the golden hour's warm light with a
+// warning not to look at the Sun), and each says what is true of it.
+func TestDescriptionsOwnPerKind(t *testing.T) {
+	site := &config.Site{ID: "orchard", Name: "Test Orchard", Latitude: 48.2, Longitude: 16.4, TimeZone: zone(t, "Europe/Vienna")}
+	first, last := time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC), time.Date(2027, 12, 31, 0, 0, 0, 0, time.UTC)
+	sky, err := NewSky(first, last)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var kinds []config.Kind
+	for _, name := range append(config.KindNames, "sun-altitude:10", "photoperiod:12h") {
+		k, err := config.ParseKind(name)
+		if err != nil || k.IsGroup() || k.Name == "daily-summary" || k.Name == config.KindLighting ||
+			(k.Name == "sun-altitude" && k.Altitude == 0) || (k.Name == "photoperiod" && k.DayLength == 0) {
+			continue
+		}
+		kinds = append(kinds, k)
+	}
+	events, _, err := sky.Events(context.Background(), PlaceOf(site), kinds, first, last)
+	if err != nil {
+		t.Fatal(err)
+	}
+	info := newSiteInfo(site)
+	seen := map[string]string{} // template → kind
+	described := map[string]string{}
+	for _, e := range events {
+		name := e.Kind.Name
+		if _, done := described[name]; done {
+			continue
+		}
+		_, desc := describe(info, e)
+		described[name] = desc
+		tpl := templateOf(e, desc)
+		if other, dup := seen[tpl]; dup {
+			t.Errorf("%s and %s share one description template:\n%s", other, name, tpl)
+		}
+		seen[tpl] = name
+	}
+	for _, k := range kinds {
+		if _, ok := described[k.Name]; !ok && k.Name != "solar-eclipse" && k.Name != "lunar-eclipse" {
+			t.Errorf("no %s event in 2027 at 48.2° N to describe", k.Name)
+		}
+	}
+
+	// What each text must (and must not) say. Sources: the twilight and
+	// photographic definitions are common practice; the caution on the eyes
+	// applies only while the Sun can be in view.
+	for name, c := range map[string]struct{ has, hasNot []string }{
+		"blue-hour":         {has: []string{"6° and 4° below the horizon", "no direct sunlight", "blue"}, hasNot: []string{"warm", cautionEyes}},
+		"golden-hour":       {has: []string{"warm", cautionEyes}},
+		"sunrise":           {has: []string{"appears", "from the day before", " min "}, hasNot: []string{"disappears", " m "}},
+		"sunset":            {has: []string{"disappears"}},
+		"moonrise":          {has: []string{"appears"}},
+		"moonset":           {has: []string{"disappears"}},
+		"sun-altitude":      {has: []string{"rising through 10.0°", cautionEyes}},
+		"photoperiod":       {has: []string{"sunrise to sunset"}, hasNot: []string{"on the day before"}},
+		"cross-quarter":     {has: []string{"midpoints"}, hasNot: []string{"quarter points"}},
+		"astronomical-dusk": {hasNot: []string{"fully dark"}},
+		"full-moon":         {hasNot: []string{"up all night"}},
+		"civil-dawn":        {hasNot: []string{cautionEyes}},
+		"dark-window":       {hasNot: []string{cautionEyes}},
+	} {
+		d, ok := described[name]
+		if !ok {
+			continue // reported above
+		}
+		for _, w := range c.has {
+			if !strings.Contains(d, w) {
+				t.Errorf("%s: description lacks %q:\n%s", name, w, d)
+			}
+		}
+		for _, w := range c.hasNot {
+			if strings.Contains(d, w) {
+				t.Errorf("%s: description says %q:\n%s", name, w, d)
+			}
+		}
+	}
+}
+
+// Directions read the same in the calendar text as in JSON, CSV and the
+// table: the Sun rising or setting through an altitude, day length rising
+// or falling through a duration.
+func TestDirectionWords(t *testing.T) {
+	site := &config.Site{ID: "orchard", Name: "Test Orchard", Latitude: 48.2, Longitude: 16.4, TimeZone: zone(t, "Europe/Vienna")}
+	first, last := time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC), time.Date(2027, 12, 31, 0, 0, 0, 0, time.UTC)
+	sky, err := NewSky(first, last)
+	if err != nil {
+		t.Fatal(err)
+	}
+	alt, _ := config.ParseKind("sun-altitude:-3")
+	pp, _ := config.ParseKind("photoperiod:12h")
+	events, _, err := sky.Events(context.Background(), PlaceOf(site), []config.Kind{alt, pp}, first, last)
+	if err != nil {
+		t.Fatal(err)
+	}
+	words := map[string]bool{}
+	for _, e := range events {
+		w := DirectionWord(e)
+		words[e.Kind.Name+" "+w] = true
+		title, desc := describe(newSiteInfo(site), e)
+		if !strings.Contains(title, w) || !strings.Contains(desc, w) {
+			t.Errorf("%s %s: the text does not say %q: %s / %s", e.Kind, e.Start, w, title, desc)
+		}
+	}
+	for _, want := range []string{"sun-altitude rising", "sun-altitude setting", "photoperiod rising", "photoperiod falling"} {
+		if !words[want] {
+			t.Errorf("no %s event", want)
+		}
+	}
+}
+
+func zone(t *testing.T, name string) config.Zone {
+	t.Helper()
+	var z config.Zone
+	if err := z.UnmarshalText([]byte(name)); err != nil {
+		t.Fatal(err)
+	}
+	return z
+}

@@ -1,0 +1,52 @@
+package feed
+
+import (
+	"strings"
+	"time"
+
+	"heliocal/astro"
+)
+
+// One rounding rule for every output. An instant is taken to the millisecond
+// (the astronomy solves to 1 ms; JSON shows milliseconds); wherever it is
+// shown to the second (tables, CSV local times, calendar files,
+// descriptions) that value is rounded to the nearest second, and where it is
+// shown to the minute (daily summaries, lamp times) to the nearest minute,
+// half a unit rounding up. Every output thus agrees with the JSON: an
+// instant at 06:42:29.600 is 06:42:30 everywhere, and one at 06:42:29.4996
+// (29.500 in JSON) too.
+
+// ToMillisecond is an instant as JSON shows it.
+func ToMillisecond(t time.Time) time.Time { return t.Round(time.Millisecond) }
+
+// ToSecond is an instant as shown to the second.
+func ToSecond(t time.Time) time.Time { return t.Round(time.Millisecond).Round(time.Second) }
+
+// ToMinute is an instant as shown to the minute.
+func ToMinute(t time.Time) time.Time { return t.Round(time.Millisecond).Round(time.Minute) }
+
+// DateOnly reports whether an event names a date rather than an instant:
+// the dates on which day length crosses a threshold. Such an event has no
+// clock time in any output; its Start is only the local midnight that
+// begins its Date.
+func (e Event) DateOnly() bool { return e.Kind.Name == "photoperiod" }
+
+// DirectionWord names which way an event crosses its threshold, the same
+// word in JSON, CSV, the table and the calendar text: the Sun "rising" or
+// "setting" through an altitude; day length "rising" or "falling" through a
+// duration; "" for events without a direction.
+func DirectionWord(e Event) string { return DirectionName(e.Kind.String(), e.Direction) }
+
+// DirectionName is DirectionWord for a kind written as in the
+// configuration ("photoperiod:12h", "sun-altitude:-3", "sunrise").
+func DirectionName(kind string, d astro.Direction) string {
+	switch {
+	case d == 0:
+		return ""
+	case d == astro.Setting && strings.HasPrefix(kind, "photoperiod"):
+		return "falling"
+	case d == astro.Setting:
+		return "setting"
+	}
+	return "rising"
+}

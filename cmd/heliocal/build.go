@@ -202,10 +202,26 @@ func (c *skyCache) get(first, last time.Time) (*feed.Sky, error) {
 	return s, nil
 }
 
-// adhocFeed renders the ad-hoc feed of a validated query.
+// adhocSettings are what an ad-hoc feed takes from the configuration.
+type adhocSettings struct {
+	layout  layout
+	refresh time.Duration
+}
+
+// adhocFeed renders the ad-hoc feed of a validated query, with a fixed
+// layout and refresh interval.
 func adhocFeed(l layout, refresh time.Duration) serve.AdhocFunc {
+	return adhocFeedFrom(func() adhocSettings { return adhocSettings{layout: l, refresh: refresh} })
+}
+
+// adhocFeedFrom is adhocFeed with the layout and refresh interval read at
+// each request from current, so that a reloaded base_url or schedule
+// applies at once.
+func adhocFeedFrom(current func() adhocSettings) serve.AdhocFunc {
 	skies := &skyCache{}
 	return func(ctx context.Context, q serve.AdhocQuery) ([]byte, error) {
+		set := current()
+		l, refresh := set.layout, set.refresh
 		first := q.Start
 		last := first.AddDate(0, 0, q.Days-1)
 		site := &config.Site{

@@ -2,9 +2,11 @@ package main
 
 import (
 	"context"
+	"errors"
 	"log/slog"
 	"os"
 	"os/signal"
+	"sync/atomic"
 	"syscall"
 	"time"
 
@@ -47,6 +49,38 @@ and the old feeds keep being served. SIGTERM or SIGINT shut down gracefully.` + 
 	return cmd
 }
 
+// reloadServe reads the configuration again and, if it is valid and its
+// feeds build, serves them: with its base URL, and on its refresh schedule
+// when that changed. It returns the new configuration, or nil when the
+// reload was refused (the old feeds, URL and schedule stay).
+func reloadServe(ctx context.Context, g *globals, log *slog.Logger, srv *serve.Server, old *config.Config, baseOf func(*config.Config) string) *config.Config {
+	if g.configPath == stdinPath {
+		log.Error("reload refused: the configuration was read from standard input, which cannot be read again; still serving the old feeds (restart heliocal to change them)")
+		srv.RefuseReload(errors.New("the configuration was read from standard input"))
+		return nil
+	}
+	next, src, err := loadConfig(g)
+	if err != nil {
+		log.Error("reload refused: the new configuration is invalid; still serving the old feeds", "err", err)
+		srv.RefuseReload(err)
+		return nil
+	}
+	if err := srv.Reload(ctx, serveBuild(next, baseOf(next))); err != nil {
+		log.Error("reload failed; still serving the old feeds", "err", err)
+		return nil
+	}
+	if next.Service.Refresh != old.Service.Refresh || next.Service.RefreshZone.Name() != old.Service.RefreshZone.Name() {
+		if err := srv.Reschedule(next.Service.Refresh, next.Service.RefreshZone.Location); err != nil {
+			log.Error("the new refresh schedule could not be applied; keeping the old one", "err", err)
+		}
+	}
+	if next.Service.Listen != old.Service.Listen {
+		log.Warn("service.listen changed: restart heliocal to listen on the new address", "listen", next.Service.Listen)
+	}
+	log.Info("configuration reloaded", "source", src.String(), "sites", len(next.Sites), "feeds", len(next.Feeds), "base_url", baseOf(next))
+	return next
+}
+
 // serveBuild returns the function that renders every feed of cfg, counting
 // "today" afresh at each call.
 func serveBuild(cfg *config.Config, base string) serve.BuildFunc {
@@ -82,24 +116,35 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 	if err != nil {
 		return err
 	}
-	base := cfg.Service.BaseURL
-	if o.baseURL != "" {
-		base = o.baseURL
+	// The base URL: --base-url, else service.base_url of the configuration
+	// in force (a reload with a new one applies it).
+	baseOf := func(c *config.Config) string {
+		if o.baseURL != "" {
+			return o.baseURL
+		}
+		return c.Service.BaseURL
 	}
 	listen := cfg.Service.Listen
 	if o.listen != "" {
 		listen = o.listen
 	}
-	l := newLayout(base)
+	var adhoc atomic.Pointer[adhocSettings]
+	setAdhoc := func(c *config.Config) {
+		adhoc.Store(&adhocSettings{layout: newLayout(baseOf(c)), refresh: refreshInterval(c, time.Now())})
+	}
+	setAdhoc(cfg)
 	access := log
 	if !o.accessLog {
 		access = slog.New(slog.DiscardHandler)
 	}
+	v := currentVersion()
 	srv, err := serve.New(serve.Options{
 		Logger:            log,
 		AccessLogger:      access,
-		Build:             serveBuild(cfg, base),
-		Adhoc:             adhocFeed(l, refreshInterval(cfg, time.Now())),
+		Build:             serveBuild(cfg, baseOf(cfg)),
+		Version:           v.Version,
+		Revision:          v.Revision,
+		Adhoc:             adhocFeedFrom(func() adhocSettings { return *adhoc.Load() }),
 		AdhocDefaultKinds: []string{"sunrise", "sunset", "civil-dawn", "civil-dusk"},
 		AdhocMaxBytes:     cfg.Service.MaxFeedBytes,
 		Schedule:          cfg.Service.Refresh,
@@ -121,21 +166,10 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 			case <-ctx.Done():
 				return
 			case <-hup:
-				if g.configPath == stdinPath {
-					log.Error("reload refused: the configuration was read from standard input, which cannot be read again; still serving the old feeds (restart heliocal to change them)")
-					continue
+				if next := reloadServe(ctx, g, log, srv, cfg, baseOf); next != nil {
+					cfg = next
+					setAdhoc(cfg)
 				}
-				next, src, err := loadConfig(g)
-				if err != nil {
-					log.Error("reload refused: the new configuration is invalid; still serving the old feeds", "err", err)
-					srv.RefuseReload(err)
-					continue
-				}
-				if err := srv.Reload(ctx, serveBuild(next, base)); err != nil {
-					log.Error("reload failed; still serving the old feeds", "err", err)
-					continue
-				}
-				log.Info("configuration reloaded", "source", src.String(), "sites", len(next.Sites), "feeds", len(next.Feeds))
 			}
 		}
 	}()

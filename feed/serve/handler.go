@@ -194,7 +194,7 @@ func (s *Server) serveBundleFile(w http.ResponseWriter, r *http.Request, name st
 func (s *Server) serveAsset(w http.ResponseWriter, r *http.Request, a *asset) {
 	h := w.Header()
 	h["Content-Type"] = a.contentType
-	h["Cache-Control"] = s.cacheControl
+	h["Cache-Control"] = *s.cacheControl.Load()
 	if a.cors {
 		h["Access-Control-Allow-Origin"] = hdrCORS
 	}

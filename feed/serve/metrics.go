@@ -3,6 +3,7 @@ package serve
 import (
 	"errors"
 	"fmt"
+	"runtime"
 	"strconv"
 	"time"
 
@@ -150,4 +151,20 @@ func registry(reg prometheus.Registerer, g prometheus.Gatherer) (prometheus.Regi
 		return nil, nil, errors.New("serve: Options.Registerer is required when Options.Gatherer is set")
 	}
 	return reg, g, nil
+}
+
+// registerBuildInfo adds heliocal_build_info, a constant 1 whose labels say
+// which build is running (the usual Prometheus "info" metric): join it to
+// other series to see which version served them, or count the versions of
+// a fleet of replicas.
+func registerBuildInfo(reg prometheus.Registerer, version, revision string) error {
+	g := prometheus.NewGaugeVec(prometheus.GaugeOpts{
+		Name: "heliocal_build_info",
+		Help: "A constant 1 labelled with the running build: version, VCS revision and Go release.",
+	}, []string{"version", "revision", "goversion"})
+	if err := reg.Register(g); err != nil {
+		return fmt.Errorf("serve: registering metrics: %w", err)
+	}
+	g.WithLabelValues(version, revision, runtime.Version()).Set(1)
+	return nil
 }

@@ -97,6 +97,10 @@ type Options struct {
 	// Build renders every feed; called at start, on schedule and by Refresh.
 	Build BuildFunc
 
+	// Version and Revision label the heliocal_build_info metric: the
+	// program's version and its VCS revision (either may be empty).
+	Version, Revision string
+
 	// Adhoc renders an ad-hoc feed; nil turns the ad-hoc route off (404).
 	Adhoc AdhocFunc
 	// ParseKind validates one event kind of the ad-hoc "kinds" parameter
@@ -157,7 +161,7 @@ type Server struct {
 	adhocSem chan struct{}
 	flights  flightGroup
 
-	cacheControl []string
+	cacheControl atomic.Pointer[[]string] // the Cache-Control header, from the refresh interval
 	snap         atomic.Pointer[snapshot]
 	now          func() time.Time // time.Now; tests fix "today"
 
@@ -229,6 +233,9 @@ func New(opts Options) (*Server, error) {
 	if s.metrics, err = newMetrics(reg); err != nil {
 		return nil, err
 	}
+	if err := registerBuildInfo(reg, opts.Version, opts.Revision); err != nil {
+		return nil, err
+	}
 
 	s.sched, err = schedule.New(func(ctx context.Context) error {
 		return s.refresh(ctx, triggerSchedule, nil)
@@ -236,12 +243,7 @@ func New(opts Options) (*Server, error) {
 	if err != nil {
 		return nil, fmt.Errorf("serve: Options.Schedule: %w", err)
 	}
-	interval := opts.RefreshInterval
-	if interval <= 0 {
-		interval, _ = schedule.Interval(s.sched.Spec(), s.sched.Location(), time.Now()) // spec already checked
-	}
-	interval = min(max(interval, minMaxAge), maxMaxAge)
-	s.cacheControl = hdr(fmt.Sprintf("public, max-age=%d", int(interval.Seconds())))
+	s.setCacheControl()
 
 	s.limits = &adhocLimits{
 		parseKind:   opts.ParseKind,
@@ -284,6 +286,32 @@ func setDefault[T int | time.Duration](p *T, v T) {
 	if *p <= 0 {
 		*p = v
 	}
+}
+
+// setCacheControl sets Cache-Control max-age to the refresh interval
+// (Options.RefreshInterval, else the schedule's), kept within 1m..24h.
+func (s *Server) setCacheControl() {
+	interval := s.opts.RefreshInterval
+	if interval <= 0 {
+		interval, _ = schedule.Interval(s.sched.Spec(), s.sched.Location(), time.Now()) // spec already checked
+	}
+	interval = min(max(interval, minMaxAge), maxMaxAge)
+	h := hdr(fmt.Sprintf("public, max-age=%d", int(interval.Seconds())))
+	s.cacheControl.Store(&h)
+}
+
+// Reschedule changes the refresh schedule (a cron expression, read in loc;
+// nil means the server's zone) while the server runs, as after a reload of
+// a configuration with a new refresh setting: the next refresh follows the
+// new expression, and Cache-Control follows its interval. A malformed
+// expression is an error and changes nothing.
+func (s *Server) Reschedule(spec string, loc *time.Location) error {
+	if err := s.sched.Reschedule(spec, loc); err != nil {
+		return fmt.Errorf("serve: %w", err)
+	}
+	s.setCacheControl()
+	s.log.Info("refresh schedule changed", "refresh", s.sched.Spec(), "zone", s.sched.Location().String(), "next_refresh", s.sched.Next())
+	return nil
 }
 
 // Handler returns the HTTP handler, for tests or to mount elsewhere. It

@@ -47,7 +47,8 @@ type Scheduler struct {
 	log      *slog.Logger
 	sched    cron.Schedule
 	cron     *cron.Cron
-	mu       sync.Mutex
+	entry    cron.EntryID
+	mu       sync.Mutex // guards the fields below, and spec, loc, sched and entry
 	started  bool
 	stopped  bool
 	cancel   context.CancelFunc
@@ -121,15 +122,58 @@ func New(fn Func, opts Options) (*Scheduler, error) {
 		cron.WithLogger(cl),
 		cron.WithChain(cron.Recover(cl), cron.SkipIfStillRunning(cl)),
 	)
-	s.cron.Schedule(sched, cron.FuncJob(s.run))
+	s.entry = s.cron.Schedule(zoned{sched, loc}, cron.FuncJob(s.run))
 	return s, nil
 }
 
+// zoned reads a schedule in a zone of its own, so that Reschedule can change
+// the zone without a new cron runner.
+type zoned struct {
+	cron.Schedule
+	loc *time.Location
+}
+
+func (z zoned) Next(t time.Time) time.Time { return z.Schedule.Next(t.In(z.loc)) }
+
+// Reschedule replaces the expression and its zone (nil means time.Local)
+// without stopping the Scheduler: the next run is the new expression's next
+// time from now; a run in progress finishes. A malformed expression is an
+// error and changes nothing.
+func (s *Scheduler) Reschedule(spec string, loc *time.Location) error {
+	if spec == "" {
+		spec = DefaultSpec
+	}
+	sched, err := parser.Parse(spec)
+	if err != nil {
+		return fmt.Errorf("schedule: invalid cron expression %q: %w", spec, err)
+	}
+	if loc == nil {
+		loc = time.Local
+	}
+	s.mu.Lock()
+	defer s.mu.Unlock()
+	if s.stopped {
+		return errors.New("schedule: Reschedule after Stop")
+	}
+	s.cron.Remove(s.entry)
+	s.entry = s.cron.Schedule(zoned{sched, loc}, cron.FuncJob(s.run))
+	s.spec, s.loc, s.sched = spec, loc, sched
+	return nil
+}
+
 // Spec returns the cron expression in use.
-func (s *Scheduler) Spec() string { return s.spec }
+func (s *Scheduler) Spec() string {
+	s.mu.Lock()
+	defer s.mu.Unlock()
+	return s.spec
+}
 
 // Location returns the zone the expression is read in.
-func (s *Scheduler) Location() *time.Location { return s.loc }
+func (s *Scheduler) Location() *time.Location {
+	s.mu.Lock()
+	defer s.mu.Unlock()
+	return s.loc
+}
 
 // Start begins scheduling. Runs receive a context derived from ctx without
 // its cancellation: cancelling ctx does not abort a run (Stop decides that),
@@ -172,7 +216,10 @@ func (s *Scheduler) Stop(ctx context.Context) error {
 // Next returns the next time the function is due, in the schedule's zone.
 // Before Start it is computed from the current time.
 func (s *Scheduler) Next() time.Time {
-	return s.sched.Next(time.Now().In(s.loc))
+	s.mu.Lock()
+	sched, loc := s.sched, s.loc
+	s.mu.Unlock()
+	return sched.Next(time.Now().In(loc))
 }
 
 // Last returns when the latest run finished, and its error (zero time if

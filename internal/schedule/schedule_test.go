@@ -280,3 +280,65 @@ func TestStopBeforeStartAndTwice(t *testing.T) {
 		t.Fatal(err)
 	}
 }
+
+// Reschedule takes effect at once, with its own zone, without a restart:
+// a nightly 03:15 UTC schedule becomes every six hours, then 01:00 in
+// Tokyo (16:00 UTC the day before; JST is UTC+9, no summer time, tz
+// database).
+func TestReschedule(t *testing.T) {
+	tokyo, err := time.LoadLocation("Asia/Tokyo")
+	if err != nil {
+		t.Skip("tz database not available:", err)
+	}
+	synctest.Test(t, func(t *testing.T) {
+		var runs []time.Time
+		var mu sync.Mutex
+		s, err := New(func(ctx context.Context) error {
+			mu.Lock()
+			runs = append(runs, time.Now().UTC())
+			mu.Unlock()
+			return nil
+		}, Options{Location: time.UTC})
+		if err != nil {
+			t.Fatal(err)
+		}
+		s.Start(t.Context())
+		time.Sleep(4 * time.Hour) // 04:00: one run at 03:15
+		synctest.Wait()
+		if err := s.Reschedule("@every 6h", nil); err != nil {
+			t.Fatal(err)
+		}
+		if s.Spec() != "@every 6h" {
+			t.Errorf("Spec() = %q", s.Spec())
+		}
+		time.Sleep(13 * time.Hour) // 17:00: runs at 10:00 and 16:00
+		synctest.Wait()
+		if err := s.Reschedule("0 1 * * *", tokyo); err != nil {
+			t.Fatal(err)
+		}
+		if got, want := s.Next(), time.Date(2000, 1, 2, 16, 0, 0, 0, time.UTC); !got.Equal(want) || got.Location() != tokyo {
+			t.Errorf("Next() = %v, want %v in Tokyo", got, want)
+		}
+		time.Sleep(24 * time.Hour) // to 17:00 the next day: one run at 16:00 UTC
+		synctest.Wait()
+		if err := s.Reschedule("61 * * * *", nil); err == nil || s.Spec() != "0 1 * * *" {
+			t.Errorf("a malformed expression: err %v, spec now %q", err, s.Spec())
+		}
+		s.Stop(t.Context())
+		if err := s.Reschedule("@daily", nil); err == nil {
+			t.Error("Reschedule after Stop accepted")
+		}
+		mu.Lock()
+		defer mu.Unlock()
+		day := time.Date(2000, 1, 1, 0, 0, 0, 0, time.UTC)
+		want := []time.Time{day.Add(3*time.Hour + 15*time.Minute), day.Add(10 * time.Hour), day.Add(16 * time.Hour), day.Add(40 * time.Hour)}
+		if len(runs) != len(want) {
+			t.Fatalf("runs = %v, want %v", runs, want)
+		}
+		for i := range runs {
+			if !runs[i].Equal(want[i]) {
+				t.Errorf("run %d at %v, want %v", i, runs[i], want[i])
+			}
+		}
+	})
+}

@@ -1,0 +1,160 @@
+package main
+
+import (
+	"context"
+	"encoding/json"
+	"io"
+	"net/http"
+	"os"
+	"path/filepath"
+	"strings"
+	"syscall"
+	"testing"
+	"time"
+)
+
+const reloadSite = `
+sites:
+  - id: north-field
+    latitude: 47.5
+    longitude: 9.7
+    timezone: Europe/Zurich
+feeds:
+  - id: north-sun
+    site: north-field
+    kinds: [sunrise, sunset]
+    days_back: 1
+    days_ahead: 20
+`
+
+// A SIGHUP that changes base_url and the refresh schedule applies both
+// without a restart: the feeds (and ad-hoc feeds) carry the new URL, the
+// next refresh follows the new schedule, and Cache-Control its interval.
+// /metrics names the running build.
+func TestServeReloadAppliesBaseURLAndSchedule(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "sky.yaml")
+	write := func(service string) {
+		t.Helper()
+		if err := os.WriteFile(path, []byte("service:\n"+service+reloadSite), 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	write("  base_url: https://a.example.org/cal/\n  refresh: \"15 3 * * *\"\n  refresh_zone: UTC\n")
+	addr := freePort(t)
+	ctx, cancel := context.WithCancel(context.Background())
+	defer cancel()
+	logs := &lockedBuffer{}
+	done := make(chan int, 1)
+	go func() {
+		done <- run(ctx, []string{"serve", "--config", path, "--listen", addr, "--access-log=false"}, io.Discard, logs, noEnv)
+	}()
+	base := "http://" + addr
+	fetch := func(p string) (int, http.Header, string) {
+		resp, err := http.Get(base + p)
+		if err != nil {
+			return 0, nil, ""
+		}
+		defer resp.Body.Close()
+		b, _ := io.ReadAll(resp.Body)
+		return resp.StatusCode, resp.Header, string(b)
+	}
+	waitFor := func(what string, ok func() bool) {
+		t.Helper()
+		for deadline := time.Now().Add(60 * time.Second); !ok(); time.Sleep(50 * time.Millisecond) {
+			if time.Now().After(deadline) {
+				t.Fatalf("timed out waiting for %s\n%s", what, logs.String())
+			}
+		}
+	}
+	waitFor("the first build", func() bool { code, _, _ := fetch("/healthz"); return code == http.StatusOK })
+	_, h, body := fetch("/feeds/north-sun.ics")
+	if !strings.Contains(body, "SOURCE;VALUE=URI:https://a.example.org/cal/north-sun.ics\r\n") || h.Get("Cache-Control") != "public, max-age=86400" {
+		t.Fatalf("before the reload: Cache-Control %q, feed:\n%.600s", h.Get("Cache-Control"), body)
+	}
+	if _, _, m := fetch("/metrics"); !strings.Contains(m, `heliocal_build_info{goversion="go`) || !strings.Contains(m, `version="`+versionString()+`"} 1`) {
+		t.Errorf("/metrics lacks heliocal_build_info:\n%s", grepLines(m, "build_info"))
+	}
+
+	write("  base_url: https://b.example.org/\n  refresh: \"@every 2h\"\n  refresh_zone: UTC\n")
+	if err := syscall.Kill(os.Getpid(), syscall.SIGHUP); err != nil {
+		t.Fatal(err)
+	}
+	waitFor("the reload", func() bool { return strings.Contains(logs.String(), "configuration reloaded") })
+	_, h, body = fetch("/feeds/north-sun.ics")
+	if !strings.Contains(body, "SOURCE;VALUE=URI:https://b.example.org/north-sun.ics\r\n") || !strings.Contains(body, "REFRESH-INTERVAL;VALUE=DURATION:PT2H\r\n") {
+		t.Errorf("after the reload the feed has the old URL or interval:\n%.800s", body)
+	}
+	if cc := h.Get("Cache-Control"); cc != "public, max-age=7200" {
+		t.Errorf("Cache-Control after the reload: %q", cc)
+	}
+	_, _, adhoc := fetch("/at.ics?lat=47.5&lon=9.7&tz=Europe/Zurich&days=2")
+	if !strings.Contains(adhoc, "URL:https://b.example.org/\r\n") {
+		t.Errorf("ad-hoc feed after the reload:\n%.800s", adhoc)
+	}
+	_, _, health := fetch("/healthz")
+	var hz struct {
+		NextRefresh time.Time `json:"next_refresh"`
+	}
+	if err := json.Unmarshal([]byte(health), &hz); err != nil {
+		t.Fatalf("%v: %s", err, health)
+	}
+	if until := time.Until(hz.NextRefresh); until <= 0 || until > 2*time.Hour {
+		t.Errorf("next refresh %v (in %v), want within the new 2 h schedule", hz.NextRefresh, until)
+	}
+	cancel()
+	if code := <-done; code != 0 {
+		t.Errorf("serve exited %d:\n%s", code, logs.String())
+	}
+}
+
+// With the configuration on standard input a SIGHUP cannot read it again:
+// the reload is refused with a message and the feeds stay.
+func TestServeReloadFromStdinRefused(t *testing.T) {
+	addr := freePort(t)
+	ctx, cancel := context.WithCancel(context.Background())
+	defer cancel()
+	logs := &lockedBuffer{}
+	done := make(chan int, 1)
+	go func() {
+		done <- runWithInput(ctx, []string{"serve", "--config", "-", "--listen", addr, "--access-log=false"},
+			strings.NewReader(reloadSite), io.Discard, logs, noEnv)
+	}()
+	ok := func() bool {
+		resp, err := http.Get("http://" + addr + "/feeds/north-sun.ics")
+		if err != nil {
+			return false
+		}
+		resp.Body.Close()
+		return resp.StatusCode == http.StatusOK
+	}
+	for deadline := time.Now().Add(60 * time.Second); !ok(); time.Sleep(50 * time.Millisecond) {
+		if time.Now().After(deadline) {
+			t.Fatalf("timed out waiting for the first build\n%s", logs.String())
+		}
+	}
+	if err := syscall.Kill(os.Getpid(), syscall.SIGHUP); err != nil {
+		t.Fatal(err)
+	}
+	for deadline := time.Now().Add(30 * time.Second); !strings.Contains(logs.String(), "reload refused: the configuration was read from standard input"); time.Sleep(50 * time.Millisecond) {
+		if time.Now().After(deadline) {
+			t.Fatalf("no refusal logged\n%s", logs.String())
+		}
+	}
+	if !ok() {
+		t.Error("the feed is gone after the refused reload")
+	}
+	cancel()
+	if code := <-done; code != 0 {
+		t.Errorf("serve exited %d:\n%s", code, logs.String())
+	}
+}
+
+func grepLines(s, sub string) string {
+	var out []string
+	for _, l := range strings.Split(s, "\n") {
+		if strings.Contains(l, sub) {
+			out = append(out, l)
+		}
+	}
+	return strings.Join(out, "\n")
+}

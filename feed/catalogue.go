@@ -127,16 +127,9 @@ func (sky *Sky) Calendar(ctx context.Context, s *config.Site, f *config.Feed, fi
 	if opts.FeedURL != nil {
 		cal.URL = opts.FeedURL(f.ID)
 	}
-	entries, err := sky.Entries(ctx, s, f.ID, f.Kinds, first, last)
+	entries, err := sky.feedEntries(ctx, s, f, first, last)
 	if err != nil {
 		return nil, fmt.Errorf("feed %q: %w", f.ID, err)
-	}
-	if len(f.Plans) > 0 {
-		pe, err := sky.PlanEntries(ctx, s, f.ID, f.Plans, first, last)
-		if err != nil {
-			return nil, fmt.Errorf("feed %q: %w", f.ID, err)
-		}
-		entries = MergeEntries(entries, pe)
 	}
 	cal.Entries = entries
 	return cal, nil
@@ -169,6 +162,17 @@ func PlaceOf(s *config.Site) Place {
 // UID. It stops with ctx's error when ctx is done.
 func (sky *Sky) Entries(ctx context.Context, s *config.Site, feedID string, specs []config.KindSpec, first, last time.Time) ([]Entry, error) {
 	col := &collector{ctx: ctx, sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
+	es, err := sky.entries(col, s, feedID, specs)
+	if err != nil {
+		return nil, err
+	}
+	return sortEntries(es), nil
+}
+
+// entries is Entries, unsorted, on a collector for the feed's dates, which
+// may have computed some of the Sun's crossings already.
+func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []config.KindSpec) ([]Entry, error) {
+	last := col.last
 	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: map[string]int{}, noted: map[string]bool{}, last: civil(last)}
 	days := int(col.last.Sub(col.first).Hours()/24) + 1
 	w.out = make([]Entry, 0, days*(len(specs)+1))
@@ -201,7 +205,7 @@ func (sky *Sky) Entries(ctx context.Context, s *config.Site, feedID string, spec
 		// each kind's events are done with once they are entries
 		col.events, col.notes = col.events[:0], col.notes[:0]
 	}
-	return sortEntries(w.out), nil
+	return w.out, nil
 }
 
 // sortEntries orders entries by Start, then UID. It sorts indices and moves
@@ -301,7 +305,12 @@ func (w *entryWriter) categories(k config.Kind) []string {
 func (w *entryWriter) event(spec config.KindSpec, e Event) {
 	offset := time.Duration(spec.Offset)
 	loc := w.site.TimeZone.Location
-	title, desc := describe(w.site, e)
+	var title, desc string
+	if e.Kind.Name == config.KindLighting {
+		title, desc = describeLighting(w.site, e, spec)
+	} else {
+		title, desc = describe(w.site, e)
+	}
 	if offset != 0 {
 		title = offsetTitle(offset, title)
 		desc = fmt.Sprintf("%s: %s.\n%s", title, localClock(e.Start.Add(offset), loc), desc)
@@ -323,12 +332,6 @@ func (w *entryWriter) event(spec config.KindSpec, e Event) {
 	en.Alarm = w.alarm
 	en.Facts = Facts{Part: e.Part, Direction: e.Direction, Altitude: e.Altitude, Distance: e.Distance,
 		Illuminated: e.Illuminated, DayLength: e.DayLength, Lamp: e.Lamp, Short: e.Short}
-	if e.Kind.Name == config.KindLighting {
-		en.Title, en.Description = describeLighting(w.site, e, spec)
-		if spec.Label != "" {
-			en.Title = spec.Label
-		}
-	}
 	if spec.AllDay || e.Kind.Name == "photoperiod" {
 		d := localDate(en.Start, loc)
 		en.AllDay, en.Start, en.End, en.Date = true, d, d.AddDate(0, 0, 1), d

@@ -2,6 +2,7 @@ package feed
 
 import (
 	"fmt"
+	"strconv"
 	"strings"
 	"time"
 
@@ -186,25 +187,35 @@ func hmShort(t time.Time, loc *time.Location) string {
 func describeLighting(s *siteInfo, e Event, spec config.KindSpec) (string, string) {
 	loc := s.TimeZone.Location
 	target := amount(e.Kind.DayLength)
-	span := hmShort(e.Start, loc) + "–" + hmShort(e.End, loc)
+	lamp := words(e.Lamp)
+	var t strings.Builder
+	t.Grow(64)
+	t.WriteString("Lamps on ")
+	t.WriteString(hmShort(e.Start, loc))
+	t.WriteString("–")
+	t.WriteString(hmShort(e.End, loc))
 	if localDate(e.End.Add(-time.Nanosecond), loc) != e.Date {
-		span += " (+1 day)"
+		t.WriteString(" (+1 day)")
 	}
-	title := fmt.Sprintf("Lamps on %s (%s, to reach %s)", span, words(e.Lamp), target)
+	t.WriteString(" (" + lamp)
 	if e.Short {
-		title = fmt.Sprintf("Lamps on %s (%s; %s not reached)", span, words(e.Lamp), target)
+		t.WriteString("; " + target + " not reached)")
+	} else {
+		t.WriteString(", to reach " + target + ")")
 	}
 	var b strings.Builder
+	b.Grow(400)
 	part := e.Part
 	if part == partPolarNight {
 		part = "polar night, centred on solar noon"
 	}
-	fmt.Fprintf(&b, "Supplemental lighting (%s): lamps on at %s, off at %s (%s).\n", part, localClock(e.Start, loc), localClock(e.End, loc), words(e.Lamp))
 	natural := "sunrise to sunset"
 	if spec.Natural == config.NaturalCivil {
 		natural = "civil dawn to civil dusk"
 	}
-	fmt.Fprintf(&b, "Natural day (%s) %s at %s; target photoperiod %s.\n", natural, hm(e.DayLength), s.where, target)
+	b.WriteString("Supplemental lighting (" + part + "): lamps on at " + localClock(e.Start, loc) + ", off at " +
+		localClock(e.End, loc) + " (" + lamp + ").\nNatural day (" + natural + ") " + hm(e.DayLength) + " at " +
+		s.where + "; target photoperiod " + target + ".\n")
 	if e.Short {
 		var limits []string
 		if spec.EarliestOn != "" {
@@ -213,13 +224,13 @@ func describeLighting(s *siteInfo, e Event, spec config.KindSpec) (string, strin
 		if spec.LatestOff != "" {
 			limits = append(limits, "off no later than "+spec.LatestOff)
 		}
-		fmt.Fprintf(&b, "Clipped (%s): the target of %s is not reached today.\n", strings.Join(limits, ", "), target)
+		b.WriteString("Clipped (" + strings.Join(limits, ", ") + "): the target of " + target + " is not reached today.\n")
 	}
 	if spec.Natural == config.NaturalCivil {
 		b.WriteString("Civil twilight is counted as natural light (common practice: twilight still drives photoperiod responses).\n")
 	}
 	b.WriteString("Computed for planning from the site's coordinates; follow the lighting programme of the crop or herd.")
-	return title, b.String()
+	return t.String(), b.String()
 }
 
 // describeLightingNote gives the note at the start of a stretch of dates
@@ -242,9 +253,9 @@ func words(d time.Duration) string {
 	h, m := int(d/time.Hour), int(d%time.Hour/time.Minute)
 	switch {
 	case h == 0:
-		return fmt.Sprintf("%d min", m)
+		return strconv.Itoa(m) + " min"
 	case m == 0:
-		return fmt.Sprintf("%d h", h)
+		return strconv.Itoa(h) + " h"
 	}
-	return fmt.Sprintf("%d h %d min", h, m)
+	return strconv.Itoa(h) + " h " + strconv.Itoa(m) + " min"
 }

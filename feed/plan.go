@@ -4,9 +4,11 @@ import (
 	"context"
 	"fmt"
 	"slices"
+	"sort"
 	"strings"
 	"time"
 
+	"heliocal/astro"
 	"heliocal/config"
 )
 
@@ -55,32 +57,103 @@ type planDate struct {
 	anchor *Event // the event of the rule (RuleEvent, RuleWeekdayOf)
 }
 
+// feedEntries computes the entries of a feed's kinds and plans on the local
+// dates first..last, sorted by Start then UID, finding the Sun's crossings
+// for both in one pass.
+func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed, first, last time.Time) ([]Entry, error) {
+	col := &collector{ctx: ctx, sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
+	if len(f.Plans) == 0 {
+		es, err := sky.entries(col, s, f.ID, f.Kinds)
+		if err != nil {
+			return nil, err
+		}
+		return sortEntries(es), nil
+	}
+	parsed, kinds, err := parsePlans(f.Plans)
+	if err != nil {
+		return nil, err
+	}
+	if err := col.prepare(append(altitudes(col.p.Observer, f.Kinds), altitudes(col.p.Observer, kinds)...)...); err != nil {
+		return nil, err
+	}
+	es, err := sky.entries(col, s, f.ID, f.Kinds)
+	if err != nil {
+		return nil, err
+	}
+	pe, err := sky.planEntries(col, s, f.ID, parsed, kinds)
+	if err != nil {
+		return nil, err
+	}
+	return sortEntries2(es, pe), nil
+}
+
 // PlanEntries computes the entries of a feed's plans on the local dates
 // first..last, sorted by Start then UID. The Sky must cover PlanMargin days
 // beyond the window (NewCatalogue sees to it).
 func (sky *Sky) PlanEntries(ctx context.Context, s *config.Site, feedID string, plans []config.Plan, first, last time.Time) ([]Entry, error) {
-	first, last = civil(first), civil(last)
-	p := PlaceOf(s)
-	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: map[string]int{}, noted: map[string]bool{}, last: last}
-	times := map[config.Kind]*kindTimes{}
+	parsed, kinds, err := parsePlans(plans)
+	if err != nil {
+		return nil, err
+	}
+	col := &collector{ctx: ctx, sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
+	if err := col.prepare(altitudes(col.p.Observer, kinds)...); err != nil {
+		return nil, err
+	}
+	es, err := sky.planEntries(col, s, feedID, parsed, kinds)
+	if err != nil {
+		return nil, err
+	}
+	return sortEntries(es), nil
+}
+
+// parsePlans parses the plans and lists the kinds their times follow.
+func parsePlans(plans []config.Plan) ([]*plan, []config.KindSpec, error) {
+	parsed := make([]*plan, len(plans))
+	var kinds []config.KindSpec
 	for i := range plans {
 		pl, err := parsePlan(&plans[i])
 		if err != nil {
+			return nil, nil, err
+		}
+		parsed[i] = pl
+		for _, spec := range []*config.TimeSpec{pl.start, pl.end} {
+			if spec != nil && !spec.IsClock && !slices.ContainsFunc(kinds, func(k config.KindSpec) bool { return k.Kind == spec.Event }) {
+				kinds = append(kinds, config.KindSpec{Kind: spec.Event})
+			}
+		}
+	}
+	return parsed, kinds, nil
+}
+
+// planEntries writes the plans' entries for the collector's dates, unsorted.
+func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parsed []*plan, kinds []config.KindSpec) ([]Entry, error) {
+	first, last := col.first, col.last
+	col.spec, col.maxLit = config.KindSpec{}, 0
+	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: map[string]int{}, noted: map[string]bool{}, last: last}
+	// the times of every kind the plans start or end at; an end may be on
+	// the day after the last date
+	next := &collector{ctx: col.ctx, sky: sky, p: col.p, first: last.AddDate(0, 0, 1), last: last.AddDate(0, 0, 1)}
+	times := map[config.Kind]*kindTimes{}
+	for _, ks := range kinds {
+		if kt, ok, err := col.sunTimes(ks.Kind); err != nil {
+			return nil, err
+		} else if ok {
+			times[ks.Kind] = kt
+			continue
+		}
+		kt, err := col.kindTimes(ks.Kind, nil)
+		if err != nil {
 			return nil, err
 		}
-		dates, err := sky.planDates(ctx, p, pl.rule, first, last)
+		if kt, err = next.kindTimes(ks.Kind, kt); err != nil {
+			return nil, err
+		}
+		times[ks.Kind] = kt
+	}
+	for _, pl := range parsed {
+		dates, err := sky.planDates(col.ctx, col.p, pl.rule, first, last)
 		if err != nil {
 			return nil, fmt.Errorf("plan %q: %w", pl.cfg.Title, err)
-		}
-		for _, spec := range []*config.TimeSpec{pl.start, pl.end} {
-			if spec == nil || spec.IsClock || times[spec.Event] != nil {
-				continue
-			}
-			kt, err := sky.kindTimes(ctx, p, spec.Event, first, last.AddDate(0, 0, 1))
-			if err != nil {
-				return nil, fmt.Errorf("plan %q: %w", pl.cfg.Title, err)
-			}
-			times[spec.Event] = kt
 		}
 		w.alarm = pl.alarm
 		for _, pd := range dates {
@@ -89,21 +162,107 @@ func (sky *Sky) PlanEntries(ctx context.Context, s *config.Site, feedID string, 
 			}
 		}
 	}
-	return sortEntries(w.out), nil
+	return w.out, nil
 }
 
-// kindTimes are the events of one kind by local date, and its notes.
+// kindTimes are the events of one kind by local date, and its notes; for
+// the Sun's rise, set, dawns and dusks, the crossings of its altitude,
+// looked up by date.
 type kindTimes struct {
 	events map[time.Time]Event
 	notes  map[time.Time]Note
+
+	sun    *threshold
+	dir    astro.Direction
+	family string
+	kind   config.Kind
+	loc    *time.Location
 }
 
-func (sky *Sky) kindTimes(ctx context.Context, p Place, k config.Kind, first, last time.Time) (*kindTimes, error) {
-	c := &collector{ctx: ctx, sky: sky, p: p, first: first, last: last}
+// sunKinds are the kinds a plan time can follow straight from the Sun's
+// crossings: direction and note family (see collector.add).
+var sunKinds = map[string]struct {
+	alt    float64 // 0: the site's rise and set altitude
+	dir    astro.Direction
+	family string
+}{
+	"sunrise":           {0, astro.Rising, "sun-horizon"},
+	"sunset":            {0, astro.Setting, "sun-horizon"},
+	"civil-dawn":        {astro.CivilTwilight, astro.Rising, "civil"},
+	"civil-dusk":        {astro.CivilTwilight, astro.Setting, "civil"},
+	"nautical-dawn":     {astro.NauticalTwilight, astro.Rising, "nautical"},
+	"nautical-dusk":     {astro.NauticalTwilight, astro.Setting, "nautical"},
+	"astronomical-dawn": {astro.AstronomicalTwilight, astro.Rising, "astronomical"},
+	"astronomical-dusk": {astro.AstronomicalTwilight, astro.Setting, "astronomical"},
+}
+
+// sunTimes returns the kindTimes of a Sun kind from the collector's
+// crossings (which cover two days beyond its dates); false for other kinds.
+func (c *collector) sunTimes(k config.Kind) (*kindTimes, bool, error) {
+	sk, ok := sunKinds[k.Name]
+	if !ok {
+		return nil, false, nil
+	}
+	alt := sk.alt
+	if alt == 0 {
+		alt = c.p.Observer.RiseSetAltitude()
+	}
+	th, err := c.threshold(alt)
+	if err != nil {
+		return nil, false, err
+	}
+	return &kindTimes{sun: th, dir: sk.dir, family: sk.family, kind: k, loc: c.p.Location}, true, nil
+}
+
+// at returns the instant of the kind on the local date d.
+func (kt *kindTimes) at(d time.Time) (time.Time, bool) {
+	if kt.sun == nil {
+		e, ok := kt.events[d]
+		return e.Start, ok
+	}
+	start, end := midnight(d, kt.loc), midnight(d.AddDate(0, 0, 1), kt.loc)
+	xs := kt.sun.xs
+	for i := sort.Search(len(xs), func(i int) bool { return !xs[i].Time.Before(start) }); i < len(xs) && xs[i].Time.Before(end); i++ {
+		if xs[i].Direction == kt.dir {
+			return xs[i].Time, true
+		}
+	}
+	return time.Time{}, false
+}
+
+// note returns the note of a date without the kind's event, when there is one.
+func (kt *kindTimes) note(d time.Time) (Note, bool) {
+	if kt.sun == nil {
+		n, ok := kt.notes[d]
+		return n, ok
+	}
+	start, end := midnight(d, kt.loc), midnight(d.AddDate(0, 0, 1), kt.loc)
+	xs := kt.sun.xs
+	i := sort.Search(len(xs), func(i int) bool { return !xs[i].Time.Before(start) })
+	if i < len(xs) && xs[i].Time.Before(end) {
+		return Note{}, false // the Sun crosses the altitude, the other way
+	}
+	up := kt.sun.upFirst
+	if i > 0 {
+		up = xs[i-1].Direction == astro.Rising
+	}
+	state := astro.AlwaysBelow
+	if up {
+		state = astro.AlwaysAbove
+	}
+	return Note{Kind: kt.kind, Date: d, State: state, Family: kt.family}, true
+}
+
+// kindTimes adds the events and notes of kind k on the collector's dates
+// to kt (a new one when nil).
+func (c *collector) kindTimes(k config.Kind, kt *kindTimes) (*kindTimes, error) {
+	c.events, c.notes = c.events[:0], c.notes[:0]
 	if err := c.add(k); err != nil {
 		return nil, err
 	}
-	kt := &kindTimes{events: map[time.Time]Event{}, notes: map[time.Time]Note{}}
+	if kt == nil {
+		kt = &kindTimes{events: make(map[time.Time]Event, len(c.events)+1), notes: map[time.Time]Note{}}
+	}
 	for _, e := range c.events {
 		if _, dup := kt.events[e.Date]; !dup {
 			kt.events[e.Date] = e
@@ -132,7 +291,21 @@ func (sky *Sky) planDates(ctx context.Context, p Place, r config.DateRule, first
 		return out, nil
 	}
 	c := &collector{ctx: ctx, sky: sky, p: p, first: first.AddDate(0, 0, -PlanMargin+1), last: last.AddDate(0, 0, PlanMargin-1)}
-	if err := c.add(r.Event); err != nil {
+	if _, phase := phaseKinds[r.Event.Name]; phase || r.Event.Name == "moon-phases" {
+		// the phases are the same for every site: found once per Sky, and
+		// a date rule needs no illumination
+		ps, err := sky.moonPhases()
+		if err != nil {
+			return nil, err
+		}
+		for _, ph := range ps {
+			if name := phaseNames[ph.Kind]; r.Event.Name == name || r.Event.Name == "moon-phases" {
+				if d := localDate(ph.Time, p.Location); c.inRange(d) {
+					c.events = append(c.events, Event{Kind: config.Kind{Name: name}, Start: ph.Time, Date: d})
+				}
+			}
+		}
+	} else if err := c.add(r.Event); err != nil {
 		return nil, err
 	}
 	slices.SortStableFunc(c.events, func(a, b Event) int { return a.Start.Compare(b.Start) })
@@ -215,7 +388,7 @@ func (w *entryWriter) plan(pl *plan, pd planDate, times map[config.Kind]*kindTim
 		en.Title = fmt.Sprintf("%s: no %s today", pl.cfg.Title, name)
 		en.Facts.Missing = pl.start.Event.String()
 		fmt.Fprintf(&b, "No time today: the start, %s, does not happen on %s", name, d.Format("Monday 2 January 2006"))
-		if n, ok := times[pl.start.Event].notes[d]; ok {
+		if n, ok := times[pl.start.Event].note(d); ok {
 			t, _ := describeNote(w.site, n)
 			b.WriteString(" (" + t + ")")
 		}
@@ -262,11 +435,11 @@ func planTime(ts config.TimeSpec, d time.Time, loc *time.Location, times map[con
 	if ts.IsClock {
 		return time.Date(d.Year(), d.Month(), d.Day(), int(ts.Clock/time.Hour), int(ts.Clock%time.Hour/time.Minute), 0, 0, loc), true
 	}
-	e, ok := times[ts.Event].events[d]
+	t, ok := times[ts.Event].at(d)
 	if !ok {
 		return time.Time{}, false
 	}
-	return e.Start.Add(ts.Offset), true
+	return t.Add(ts.Offset), true
 }
 
 // timeWords says which event a plan time follows, " (30 min after
@@ -316,26 +489,38 @@ func ruleText(r config.DateRule) string {
 	return ""
 }
 
-// MergeEntries merges two lists sorted by Start then UID into one.
-func MergeEntries(a, b []Entry) []Entry {
-	if len(b) == 0 {
-		return a
-	}
-	out := make([]Entry, 0, len(a)+len(b))
-	i, j := 0, 0
-	for i < len(a) && j < len(b) {
-		c := a[i].Start.Compare(b[j].Start)
-		if c == 0 {
-			c = strings.Compare(a[i].UID, b[j].UID)
+// moonPhases returns the Moon's phases over the Sky's dates, found once.
+func (sky *Sky) moonPhases() ([]astro.Phase, error) {
+	sky.phaseOnce.Do(func() {
+		sky.phaseList, sky.phaseErr = astro.MoonPhases(sky.from, sky.to)
+	})
+	return sky.phaseList, sky.phaseErr
+}
+
+// sortEntries2 is sortEntries of the entries of a and b together, without
+// first copying them into one slice.
+func sortEntries2(a, b []Entry) []Entry {
+	n := len(a)
+	at := func(i int32) *Entry {
+		if int(i) < n {
+			return &a[i]
 		}
-		if c <= 0 {
-			out = append(out, a[i])
-			i++
-		} else {
-			out = append(out, b[j])
-			j++
-		}
+		return &b[int(i)-n]
 	}
-	out = append(out, a[i:]...)
-	return append(out, b[j:]...)
+	idx := make([]int32, n+len(b))
+	for i := range idx {
+		idx[i] = int32(i)
+	}
+	slices.SortFunc(idx, func(i, j int32) int {
+		x, y := at(i), at(j)
+		if c := x.Start.Compare(y.Start); c != 0 {
+			return c
+		}
+		return strings.Compare(x.UID, y.UID)
+	})
+	out := make([]Entry, len(idx))
+	for i, j := range idx {
+		out[i] = *at(j)
+	}
+	return out
 }

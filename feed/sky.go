@@ -81,6 +81,10 @@ type Sky struct {
 
 	eclipseOnce sync.Once
 	eclipses    eclipseList
+
+	phaseOnce sync.Once // the Moon's phases over from..to, for plans' date rules
+	phaseList []astro.Phase
+	phaseErr  error
 }
 
 // yearKey names one year's result of a yearly computation.

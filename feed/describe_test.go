@@ -68,7 +68,7 @@ func TestDescriptionsOwnPerKind(t *testing.T) {
 	// photographic definitions are common practice; the caution on the eyes
 	// applies only while the Sun can be in view.
 	for name, c := range map[string]struct{ has, hasNot []string }{
-		"blue-hour":         {has: []string{"6° and 4° below the horizon", "no direct sunlight", "blue"}, hasNot: []string{"warm", cautionEyes}},
+		"blue-hour":         {has: []string{"6° and 4° below the horizon", "no direct sunlight", "blue", " min)"}, hasNot: []string{"warm", cautionEyes, "(0 h"}},
 		"golden-hour":       {has: []string{"warm", cautionEyes}},
 		"sunrise":           {has: []string{"appears", "from the day before", " min "}, hasNot: []string{"disappears", " m "}},
 		"sunset":            {has: []string{"disappears"}},
@@ -138,4 +138,17 @@ func zone(t *testing.T, name string) config.Zone {
 		t.Fatal(err)
 	}
 	return z
+}
+
+func TestDurationWords(t *testing.T) {
+	for d, want := range map[time.Duration]string{48 * time.Minute: "48 min", 9*time.Hour + 5*time.Minute: "9 h 05 min", 0: "0 min"} {
+		if got := hm(d); got != want {
+			t.Errorf("hm(%v) = %q, want %q", d, got, want)
+		}
+	}
+	for d, want := range map[time.Duration]string{-32 * time.Second: "−32 s", 64 * time.Second: "+1 min 04 s", 0: "+0 s"} {
+		if got := change(d); got != want {
+			t.Errorf("change(%v) = %q, want %q", d, got, want)
+		}
+	}
 }

@@ -43,15 +43,20 @@ func twoDigits(n int) string {
 	return string([]byte{byte('0' + n/10), byte('0' + n%10)})
 }
 
-// hm formats a duration as "9 h 25 min" (rounded to the minute).
+// hm formats a duration as "9 h 25 min", or "48 min" under an hour
+// (rounded to the minute).
 func hm(d time.Duration) string {
 	d = d.Round(time.Minute)
 	h := int(d / time.Hour)
 	m := int((d % time.Hour) / time.Minute)
+	if h == 0 {
+		return strconv.Itoa(m) + " min"
+	}
 	return strconv.Itoa(h) + " h " + twoDigits(m) + " min"
 }
 
-// change formats a signed day-length change as "+1 min 30 s" or "−2 min 05 s".
+// change formats a signed day-length change as "+1 min 30 s", "−2 min 05 s"
+// or "−32 s".
 func change(d time.Duration) string {
 	sign := "+"
 	if d < 0 {
@@ -60,6 +65,9 @@ func change(d time.Duration) string {
 	d = d.Round(time.Second)
 	m := int(d / time.Minute)
 	s := int((d % time.Minute) / time.Second)
+	if m == 0 {
+		return sign + strconv.Itoa(s) + " s"
+	}
 	return sign + strconv.Itoa(m) + " min " + twoDigits(s) + " s"
 }
 

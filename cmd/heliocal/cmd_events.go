@@ -235,12 +235,12 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 	}
 	loc := site.TimeZone.Location
 	if site.ZoneInferred {
-		how := "the configuration gives site " + site.ID + " no timezone"
-		if o.site == "" {
-			how = "no --tz given"
+		how, choose := "the configuration gives site "+site.ID+" no timezone", "add timezone: to the site to choose another"
+		if o.site == "" && o.feed == "" {
+			how, choose = "no --tz given", "give --tz to choose another"
 		}
-		fmt.Fprintf(g.stderr, "heliocal: %s: using %s, the zone in force at %.4f, %.4f (give --tz or timezone to choose)\n",
-			how, config.DescribeZone(loc, o.now), site.Latitude, site.Longitude)
+		fmt.Fprintf(g.stderr, "heliocal: %s: using %s, the zone in force at %.4f, %.4f (%s)\n",
+			how, config.DescribeZone(loc, o.now), site.Latitude, site.Longitude, choose)
 	}
 	today := o.now.In(loc)
 	from := time.Date(today.Year(), today.Month(), today.Day(), 0, 0, 0, 0, time.UTC)

@@ -102,8 +102,10 @@ func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Tim
 		return err
 	}
 	w := &publish.Writer{Dir: out, LockWait: o.lockWait}
-	w.Waiting = func(lock string) {
-		fmt.Fprintf(g.stderr, "heliocal: another publish is writing to %s; waiting up to %v for its lock (%s)\n", out, o.lockWait, lock)
+	if !o.quiet {
+		w.Waiting = func(lock string) {
+			fmt.Fprintf(g.stderr, "heliocal: another publish is writing to %s; waiting up to %v for its lock (%s)\n", out, o.lockWait, lock)
+		}
 	}
 	if !o.quiet {
 		fmt.Fprintf(g.stderr, "heliocal: publishing %d feeds from %s to %s\n", len(srcs), src, out)

@@ -156,7 +156,7 @@ func (r *publishRun) commit(ctx context.Context) error {
 	if err := r.retract(sets); err != nil {
 		return err
 	}
-	if err := r.installFeeds(); err != nil {
+	if err := r.w.installAll(r.staged, &r.st); err != nil {
 		return err
 	}
 	return r.writeListing(ctx)
@@ -184,23 +184,12 @@ func (r *publishRun) restage(ctx context.Context) error {
 	return nil
 }
 
-// changed returns the ids of the feeds the commit replaces.
-func (r *publishRun) changed() map[string]bool {
-	ids := map[string]bool{}
-	for _, sf := range r.staged {
-		if sf.tmp != "" {
-			ids[sf.src.ID] = true
-		}
-	}
-	return ids
-}
-
 // retract removes from the directory every record that would stop being
 // true once the staged feeds are renamed: the manifests of other runs
 // (checkMix has found them finished or abandoned), this shard's previous
 // manifest, and feeds.json's entries for the feeds about to change.
 func (r *publishRun) retract(sets []*shardSet) error {
-	changed := r.changed()
+	changed := changedIDs(r.staged)
 	var names []string
 	for _, s := range sets {
 		if s.digest == r.digest && s.count == r.opts.Shard.Count && r.opts.Shard.Sharded() {
@@ -215,24 +204,6 @@ func (r *publishRun) retract(sets []*shardSet) error {
 		return err
 	}
 	return r.w.retractFeeds(changed)
-}
-
-// installFeeds renames every staged temporary file over its feed.
-func (r *publishRun) installFeeds() error {
-	for i, sf := range r.staged {
-		if sf.tmp == "" {
-			r.st.FeedsUnchanged++
-			r.st.FilesUnchanged++
-			continue
-		}
-		if err := r.w.install(sf.tmp, sf.name); err != nil {
-			return err
-		}
-		r.staged[i].tmp = ""
-		r.st.FeedsWritten++
-		r.st.FilesWritten++
-	}
-	return syncDir(r.w.Dir)
 }
 
 // writeListing writes what lists the feeds: for a whole run feeds.json and
@@ -299,11 +270,7 @@ func (r *publishRun) finish(err error) (Stats, error) {
 	r.st.Elapsed = time.Since(r.start)
 	p := r.opts.Progress
 	if err != nil {
-		for _, sf := range r.staged {
-			if sf.tmp != "" {
-				os.Remove(sf.tmp)
-			}
-		}
+		removeStaged(r.staged)
 		if p != nil {
 			p.Abort()
 		}

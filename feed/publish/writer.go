@@ -443,69 +443,21 @@ func (w *Writer) WriteBundle(ctx context.Context, b *Bundle) (st Stats, err erro
 	if err != nil {
 		return st, err
 	}
-	files := make([]*File, len(b.Files))
-	for i := range b.Files {
-		files[i] = &b.Files[i]
-	}
-	sort.SliceStable(files, func(i, j int) bool {
-		pi, pj := phase(files[i].Name), phase(files[j].Name)
-		if pi != pj {
-			return pi < pj
-		}
-		return files[i].Name < files[j].Name
-	})
-	var staged []stagedFeed
-	defer func() {
-		for _, sf := range staged {
-			if sf.tmp != "" {
-				os.Remove(sf.tmp)
-			}
-		}
-	}()
-	changed := map[string]bool{}
-	for _, f := range files {
-		if phase(f.Name) != 0 {
-			continue
-		}
-		if err := checkName(f.Name); err != nil {
-			return st, err
-		}
-		if err := ctx.Err(); err != nil {
-			return st, fmt.Errorf("publish: %w", err)
-		}
-		sf, err := w.stageFile(Source{ID: strings.TrimSuffix(f.Name, ".ics")}, *f)
-		if err != nil {
-			return st, err
-		}
-		staged = append(staged, sf)
-		st.Feeds++
-		st.Bytes += int64(len(f.Data))
-		if sf.tmp != "" {
-			changed[sf.src.ID] = true
-		}
+	files := inPhaseOrder(b)
+	staged, err := w.stageBundle(ctx, files, &st)
+	defer removeStaged(staged)
+	if err != nil {
+		return st, err
 	}
 	unlock, err := w.lockDir(ctx)
 	if err != nil {
 		return st, err
 	}
 	defer unlock()
-	if err := w.retractFeeds(changed); err != nil {
+	if err := w.retractFeeds(changedIDs(staged)); err != nil {
 		return st, err
 	}
-	for i, sf := range staged {
-		if sf.tmp == "" {
-			st.FeedsUnchanged++
-			st.FilesUnchanged++
-			continue
-		}
-		if err := w.install(sf.tmp, sf.name); err != nil {
-			return st, err
-		}
-		staged[i].tmp = ""
-		st.FeedsWritten++
-		st.FilesWritten++
-	}
-	if err := syncDir(w.Dir); err != nil {
+	if err := w.installAll(staged, &st); err != nil {
 		return st, err
 	}
 	indexFiles := 0
@@ -527,4 +479,85 @@ func (w *Writer) WriteBundle(ctx context.Context, b *Bundle) (st Stats, err erro
 	}
 	st.Elapsed = time.Since(start)
 	return st, nil
+}
+
+// inPhaseOrder returns b's files in the order they are written: by phase,
+// then by name.
+func inPhaseOrder(b *Bundle) []*File {
+	files := make([]*File, len(b.Files))
+	for i := range b.Files {
+		files[i] = &b.Files[i]
+	}
+	sort.SliceStable(files, func(i, j int) bool {
+		pi, pj := phase(files[i].Name), phase(files[j].Name)
+		if pi != pj {
+			return pi < pj
+		}
+		return files[i].Name < files[j].Name
+	})
+	return files
+}
+
+// stageBundle stages the bundle's .ics files (see stageFile), counting them
+// in st.
+func (w *Writer) stageBundle(ctx context.Context, files []*File, st *Stats) ([]stagedFeed, error) {
+	var staged []stagedFeed
+	for _, f := range files {
+		if phase(f.Name) != 0 {
+			continue
+		}
+		if err := checkName(f.Name); err != nil {
+			return staged, err
+		}
+		if err := ctx.Err(); err != nil {
+			return staged, fmt.Errorf("publish: %w", err)
+		}
+		sf, err := w.stageFile(Source{ID: strings.TrimSuffix(f.Name, ".ics")}, *f)
+		if err != nil {
+			return staged, err
+		}
+		staged = append(staged, sf)
+		st.Feeds++
+		st.Bytes += int64(len(f.Data))
+	}
+	return staged, nil
+}
+
+// changedIDs returns the ids of the staged feeds that replace their file.
+func changedIDs(staged []stagedFeed) map[string]bool {
+	ids := map[string]bool{}
+	for _, sf := range staged {
+		if sf.tmp != "" {
+			ids[sf.src.ID] = true
+		}
+	}
+	return ids
+}
+
+// installAll renames every staged temporary file over its feed, counting
+// in st, and makes the renames durable.
+func (w *Writer) installAll(staged []stagedFeed, st *Stats) error {
+	for i, sf := range staged {
+		if sf.tmp == "" {
+			st.FeedsUnchanged++
+			st.FilesUnchanged++
+			continue
+		}
+		if err := w.install(sf.tmp, sf.name); err != nil {
+			return err
+		}
+		staged[i].tmp = ""
+		st.FeedsWritten++
+		st.FilesWritten++
+	}
+	return syncDir(w.Dir)
+}
+
+// removeStaged removes the temporary files of staged feeds not installed.
+func removeStaged(staged []stagedFeed) {
+	for _, sf := range staged {
+		if sf.tmp != "" {
+			os.Remove(sf.tmp)
+		}
+	}
 }

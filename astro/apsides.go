@@ -15,12 +15,12 @@ import (
 
 // Perihelion returns the instant (UTC) of the Earth's perihelion in year
 // (early January) and the distance then, in au. It returns a *RangeError for
-// years outside 1800..2200.
+// years outside 1799..2201.
 func Perihelion(year int) (time.Time, float64, error) { return apsis(year, false) }
 
 // Aphelion returns the instant (UTC) of the Earth's aphelion in year (early
 // July) and the distance then, in au. It returns a *RangeError for years
-// outside 1800..2200.
+// outside 1799..2201.
 func Aphelion(year int) (time.Time, float64, error) { return apsis(year, true) }
 
 func apsis(year int, aphelion bool) (time.Time, float64, error) {

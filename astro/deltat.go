@@ -38,7 +38,10 @@ import (
 //     2027 and 203 s in 2100.)
 //
 // The supported span is MinTime..MaxTime (1800-01-01 to 2200-12-31
-// inclusive). Exported functions return a *RangeError outside it.
+// inclusive). The computations also run within RangeMargin beyond it (and
+// the yearly ones for 1799 and 2201), so that the local dates at either end,
+// in any zone and with the searches' own margins, can be computed.
+// Exported functions return a *RangeError outside the span and its margin.
 
 var (
 	// MinTime is the first instant this package supports.
@@ -48,23 +51,31 @@ var (
 	MaxTime = time.Date(2201, 1, 1, 0, 0, 0, 0, time.UTC)
 )
 
+// RangeMargin is how far beyond MinTime and MaxTime the package still
+// computes: a month, for the margins of ephemerides, searches and time
+// zones around the first and the last supported dates.
+const RangeMargin = 31 * 24 * time.Hour
+
 var (
 	minUnix = float64(MinTime.Unix())
 	maxUnix = float64(MaxTime.Unix())
 )
 
-// checkTime returns a *RangeError when t is outside MinTime..MaxTime.
+// checkTime returns a *RangeError when t is outside MinTime..MaxTime
+// widened by RangeMargin.
 func checkTime(what string, t time.Time) error {
-	if t.Before(MinTime) || !t.Before(MaxTime) {
+	if t.Before(MinTime.Add(-RangeMargin)) || !t.Before(MaxTime.Add(RangeMargin)) {
 		return &RangeError{What: what, Value: t.UTC().Format(time.RFC3339), Min: "1800-01-01", Max: "2200-12-31"}
 	}
 	return nil
 }
 
-// checkYear returns a *RangeError when year is outside 1800..2200.
+// checkYear returns a *RangeError when year is outside 1799..2201: the
+// supported years and one on each side, whose events (the season before the
+// first supported date, the one after the last) a window at either end needs.
 func checkYear(year int) error {
-	if year < 1800 || year > 2200 {
-		return &RangeError{What: "year", Value: itoa(year), Min: "1800", Max: "2200"}
+	if year < 1799 || year > 2201 {
+		return &RangeError{What: "year", Value: itoa(year), Min: "1799", Max: "2201"}
 	}
 	return nil
 }

@@ -50,8 +50,11 @@
 // (sunrise −0.8333° = 34′ of refraction + 16′ of semidiameter; the dip of the
 // horizon 1.76′·√h for an elevated observer; twilight −6°, −12°, −18°).
 //
-// The supported span is 1800-01-01 to 2200-12-31 (MinTime, MaxTime); outside
-// it functions return a *RangeError that matches ErrOutOfRange. Invalid
+// The supported span is 1800-01-01 to 2200-12-31 (MinTime, MaxTime), every
+// kind of event on every date of it; the computations run a month beyond it
+// (RangeMargin; the yearly ones for 1799..2201) for the margins the dates at
+// either end need. Outside that, functions return a *RangeError that matches
+// ErrOutOfRange. Invalid
 // input (a latitude of 95°) gives an *InputError naming the field and
 // value, matching ErrInvalidInput. Polar day and polar night are not
 // errors: they are states (State, Day) of the result.

@@ -32,7 +32,7 @@ func seasonMeanJDE(year, k int) float64 {
 // geocentric longitude is 0°, 90°, 180° and 270°. Measured against the
 // almanac-office values for 1905–2100 in testdata/reference/seasons.csv
 // (rounded to the minute) and against an independent computation (see
-// seasons_test.go). It returns a *RangeError for years outside 1800..2200.
+// seasons_test.go). It returns a *RangeError for years outside 1799..2201.
 func Seasons(year int) ([4]time.Time, error) {
 	var out [4]time.Time
 	if err := checkYear(year); err != nil {
@@ -56,7 +56,7 @@ var CrossQuarterLongitudes = [4]float64{315, 45, 135, 225}
 // May), 135° (early August) and 225° (early November), in that calendar
 // order: the cross-quarter days of farm calendars, midway between the
 // equinoxes and solstices. It returns a *RangeError for years outside
-// 1800..2200.
+// 1799..2201.
 func CrossQuarters(year int) ([4]time.Time, error) {
 	var out [4]time.Time
 	for i, lon := range CrossQuarterLongitudes {
@@ -75,7 +75,7 @@ func CrossQuarters(year int) ([4]time.Time, error) {
 // longitude within about a degree of it may be reached twice or not at all in
 // a calendar year; the instant returned is then the one nearest to where
 // that longitude falls in an average year, which can lie in the neighbouring
-// year. It returns a *RangeError for years outside 1800..2200.
+// year. It returns a *RangeError for years outside 1799..2201.
 func SolarLongitudeTime(year int, longitude float64) (time.Time, error) {
 	if err := checkYear(year); err != nil {
 		return time.Time{}, err

@@ -187,11 +187,12 @@ func TestNOAASpreadsheet(t *testing.T) {
 }
 
 // TestRangeErrors checks that every entry point refuses instants and years
-// outside 1800..2200 with a *RangeError matching ErrOutOfRange, and accepts
-// the ends of the range.
+// outside 1800..2200 and its margin (RangeMargin; a year for the yearly
+// functions) with a *RangeError matching ErrOutOfRange, and accepts the
+// ends of the range with their margins.
 func TestRangeErrors(t *testing.T) {
-	early := time.Date(1799, 12, 31, 23, 59, 59, 0, time.UTC)
-	late := time.Date(2201, 1, 1, 0, 0, 0, 0, time.UTC)
+	early := MinTime.Add(-RangeMargin - time.Second)
+	late := MaxTime.Add(RangeMargin)
 	check := func(name string, err error) {
 		t.Helper()
 		var re *RangeError
@@ -211,7 +212,7 @@ func TestRangeErrors(t *testing.T) {
 		_, err = GreenwichApparentSiderealTime(tm)
 		check("GreenwichApparentSiderealTime", err)
 	}
-	for _, y := range []int{1799, 2201} {
+	for _, y := range []int{1798, 2202} {
 		_, err := Seasons(y)
 		check("Seasons", err)
 		_, err = CrossQuarters(y)
@@ -221,11 +222,18 @@ func TestRangeErrors(t *testing.T) {
 		_, _, err = Aphelion(y)
 		check("Aphelion", err)
 	}
-	if _, err := Seasons(1800); err != nil {
-		t.Error(err)
+	for _, y := range []int{1799, 1800, 2200, 2201} {
+		if _, err := Seasons(y); err != nil {
+			t.Error(err)
+		}
+		if _, _, err := Perihelion(y); err != nil {
+			t.Error(err)
+		}
 	}
-	if _, err := Seasons(2200); err != nil {
-		t.Error(err)
+	for _, tm := range []time.Time{MinTime.Add(-RangeMargin), MaxTime.Add(RangeMargin - time.Second)} {
+		if _, err := NewEphemeris(tm, tm); err != nil {
+			t.Error(err)
+		}
 	}
 	if _, err := NewEphemeris(time.Date(1800, 1, 1, 0, 0, 0, 0, time.UTC), time.Date(1800, 1, 5, 0, 0, 0, 0, time.UTC)); err != nil {
 		t.Error(err)
@@ -233,8 +241,8 @@ func TestRangeErrors(t *testing.T) {
 	if _, err := NewEphemeris(time.Date(2200, 12, 25, 0, 0, 0, 0, time.UTC), time.Date(2200, 12, 31, 23, 0, 0, 0, time.UTC)); err != nil {
 		t.Error(err)
 	}
-	_, err := Seasons(1799)
-	if got, want := err.Error(), "astro: year 1799 outside the supported range 1800..2200"; got != want {
+	_, err := Seasons(1798)
+	if got, want := err.Error(), "astro: year 1798 outside the supported range 1799..2201"; got != want {
 		t.Errorf("error text %q, want %q", got, want)
 	}
 	if _, err := NewEphemeris(late.AddDate(-1, 0, 0), late.AddDate(-2, 0, 0)); err == nil {

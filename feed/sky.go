@@ -631,12 +631,6 @@ func (c *collector) seasons(k config.Kind) error {
 		}
 		all = append(all, s[:]...)
 	}
-	// the season after the last listed one, for the length of that season
-	next, err := yearly(c.sky, "seasons", c.last.Year()+2, astro.Seasons)
-	if err != nil {
-		return err
-	}
-	all = append(all, next[0])
 	for i := 0; i+1 < len(all); i++ {
 		name := seasonNames[i%4]
 		if k.Name != "seasons" && k.Name != name {

@@ -255,13 +255,8 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 			return err
 		}
 	}
-	if to.Before(from) {
-		return badInput("--to: %s is before --from %s", to.Format(time.DateOnly), from.Format(time.DateOnly))
-	}
-	// two days of margin on each side for the ephemeris and far time zones
-	if lo, hi := astro.MinTime.AddDate(0, 0, 3), astro.MaxTime.AddDate(0, 0, -4); from.Before(lo) || to.After(hi) {
-		return badInput("--from/--to: %s..%s: outside the supported dates %s..%s", from.Format(time.DateOnly),
-			to.Format(time.DateOnly), lo.Format(time.DateOnly), hi.Format(time.DateOnly))
+	if err := checkRange(from, to); err != nil {
+		return err
 	}
 	var specs []config.KindSpec
 	if o.feedSpecs != nil && !o.kindsSet {

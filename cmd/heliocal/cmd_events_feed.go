@@ -72,7 +72,7 @@ func runEventsFeed(ctx context.Context, g *globals, o *eventsOptions) error {
 			return err
 		}
 	}
-	if err := checkRange(first, last, feed.PlanMargin); err != nil {
+	if err := checkRange(first, last); err != nil {
 		return err
 	}
 	cal, err := cat.CalendarBetween(ctx, f, first, last)
@@ -98,12 +98,13 @@ func runEventsFeed(ctx context.Context, g *globals, o *eventsOptions) error {
 }
 
 // checkRange refuses a date range that is reversed or outside the supported
-// dates, keeping margin days for the ephemeris.
-func checkRange(from, to time.Time, margin int) error {
+// dates 1800-01-01..2200-12-31 (astro computes a month beyond them, enough
+// for the ephemeris, the plans and far time zones).
+func checkRange(from, to time.Time) error {
 	if to.Before(from) {
 		return badInput("--to: %s is before --from %s", to.Format(time.DateOnly), from.Format(time.DateOnly))
 	}
-	lo, hi := astro.MinTime.AddDate(0, 0, 3+margin), astro.MaxTime.AddDate(0, 0, -4-margin)
+	lo, hi := astro.MinTime, astro.MaxTime.AddDate(0, 0, -1)
 	if from.Before(lo) || to.After(hi) {
 		return badInput("--from/--to: %s..%s: outside the supported dates %s..%s", from.Format(time.DateOnly),
 			to.Format(time.DateOnly), lo.Format(time.DateOnly), hi.Format(time.DateOnly))

@@ -13,8 +13,11 @@ import (
 type Kind struct {
 	// Name is the base name, e.g. "sunrise", "sun-altitude", "photoperiod".
 	Name string
-	// Altitude is the threshold in degrees for "sun-altitude:<deg>".
+	// Altitude is the threshold in degrees for "sun-altitude:<deg>", and
+	// the lower bound of "sun-band:<low>..<high>".
 	Altitude float64
+	// High is the upper bound in degrees of "sun-band:<low>..<high>".
+	High float64
 	// DayLength is the threshold for "photoperiod:<duration>" and the
 	// target for "lighting:<duration>".
 	DayLength time.Duration
@@ -33,6 +36,10 @@ const (
 	// natural day is shorter than the target photoperiod <duration>
 	// (0 < d < 24h), the lamp periods that make up the difference.
 	KindLighting = "lighting"
+	// KindSunBand is written "sun-band:<low>..<high>": spans while the Sun's
+	// centre is between the altitudes low and high (−90 < low < high < 90),
+	// morning and evening, like golden hour between any two altitudes.
+	KindSunBand = "sun-band"
 )
 
 // Kind families, returned by Kind.Family.
@@ -74,6 +81,7 @@ var kindTable = []kindDef{
 	{name: "astronomical-dusk", family: FamilyTwilight, doc: "end of evening astronomical twilight (Sun 18° below the horizon)"},
 	{name: "golden-hour", family: FamilyTwilight, flags: flagSpan, doc: "spans, morning and evening, while the Sun is between −4° and 6° altitude"},
 	{name: "blue-hour", family: FamilyTwilight, flags: flagSpan, doc: "spans, morning and evening, while the Sun is between −6° and −4° altitude"},
+	{name: KindSunBand, family: FamilySun, flags: flagParam | flagSpan, doc: "spans, morning and evening, while the Sun's centre is between <low> and <high> degrees of altitude, e.g. sun-band:20..35"},
 	{name: KindSunAltitude, family: FamilySun, flags: flagParam, doc: "the Sun's centre crosses <deg> degrees of altitude, rising and setting (−90 < deg < 90)"},
 	{name: "march-equinox", family: FamilyYear, flags: flagYearly, doc: "apparent solar longitude 0°"},
 	{name: "june-solstice", family: FamilyYear, flags: flagYearly, doc: "apparent solar longitude 90°"},
@@ -132,6 +140,8 @@ var KindExamples = func() []string {
 			ex[i] = "photoperiod:12h30m"
 		case KindLighting:
 			ex[i] = "lighting:16h"
+		case KindSunBand:
+			ex[i] = "sun-band:20..35"
 		default:
 			ex[i] = d.name
 		}
@@ -214,6 +224,24 @@ func ParseKind(s string) (Kind, error) {
 			return Kind{}, &KindError{Value: s, Msg: "altitude must be within -90..90 (exclusive)", Hint: "civil twilight is -6, the horizon 0"}
 		}
 		return Kind{Name: KindSunAltitude, Altitude: deg}, nil
+	case KindSunBand:
+		const hint = `write two altitudes in degrees, low first, e.g. "sun-band:20..35" or "sun-band:-4..6"`
+		a, b, ok := strings.Cut(param, "..")
+		if !ok {
+			return Kind{}, &KindError{Value: s, Msg: "needs two altitudes, low..high", Hint: hint}
+		}
+		lo, err1 := strconv.ParseFloat(strings.TrimSpace(a), 64)
+		hi, err2 := strconv.ParseFloat(strings.TrimSpace(b), 64)
+		if err1 != nil || err2 != nil || math.IsNaN(lo) || math.IsNaN(hi) || math.IsInf(lo, 0) || math.IsInf(hi, 0) {
+			return Kind{}, &KindError{Value: s, Msg: "malformed altitudes", Hint: hint}
+		}
+		if !(lo > -90 && hi < 90) {
+			return Kind{}, &KindError{Value: s, Msg: "altitudes must be within -90..90 (exclusive)", Hint: hint}
+		}
+		if !(lo < hi) {
+			return Kind{}, &KindError{Value: s, Msg: "the low altitude must be below the high one", Hint: hint}
+		}
+		return Kind{Name: KindSunBand, Altitude: lo, High: hi}, nil
 	default: // KindPhotoperiod, KindLighting
 		if param == "" {
 			return Kind{}, &KindError{Value: s, Msg: "needs a day length", Hint: fmt.Sprintf(`e.g. "%s:12h" or "%s:14h30m"`, d.name, d.name)}
@@ -244,6 +272,8 @@ func (k Kind) String() string {
 	switch k.Name {
 	case KindSunAltitude:
 		return KindSunAltitude + ":" + strconv.FormatFloat(k.Altitude, 'f', -1, 64)
+	case KindSunBand:
+		return KindSunBand + ":" + strconv.FormatFloat(k.Altitude, 'f', -1, 64) + ".." + strconv.FormatFloat(k.High, 'f', -1, 64)
 	case KindPhotoperiod, KindLighting:
 		return k.Name + ":" + shortDuration(k.DayLength)
 	}

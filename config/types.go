@@ -68,6 +68,10 @@ type KindSpec struct {
 	// MaxIllumination applies to dark-window: the Moon counts as absent while
 	// its illuminated fraction is below this (0..1); default 0 (Moon must be down).
 	MaxIllumination float64 `mapstructure:"max_illumination"`
+	// Low and High replace the altitude bounds of golden-hour and
+	// blue-hour in degrees (nil: the defaults, −4°..6° and −6°..−4°).
+	Low  *float64 `mapstructure:"low"`
+	High *float64 `mapstructure:"high"`
 
 	// Alarm, when set, replaces the feed's alarm for this kind's timed
 	// entries ("0s" for none).

@@ -556,5 +556,56 @@ func (ks *KindSpec) validate(ps *problems, p string) {
 	case mi != 0 && ks.Kind.Name != "dark-window":
 		ps.add(p+".max_illumination", ftoa(mi), "applies only to dark-window", "remove it, or use kind: dark-window")
 	}
+	ks.validateBand(ps, p)
 	ks.validateOptions(ps, p)
+}
+
+// BandDefaults are the altitude bounds (degrees) of golden-hour and
+// blue-hour when the kinds entry sets no low or high (common practice).
+var BandDefaults = map[string][2]float64{"golden-hour": {-4, 6}, "blue-hour": {-6, -4}}
+
+// Band returns the altitude bounds of a golden-hour or blue-hour entry: its
+// low and high options, else the defaults.
+func (ks *KindSpec) Band() (low, high float64) {
+	d := BandDefaults[ks.Kind.Name]
+	low, high = d[0], d[1]
+	if ks.Low != nil {
+		low = *ks.Low
+	}
+	if ks.High != nil {
+		high = *ks.High
+	}
+	return low, high
+}
+
+// validateBand checks the low and high options: golden-hour and blue-hour
+// only, within -90..90, low below high.
+func (ks *KindSpec) validateBand(ps *problems, p string) {
+	if ks.Low == nil && ks.High == nil {
+		return
+	}
+	if _, ok := BandDefaults[ks.Kind.Name]; !ok {
+		key, v := "low", ks.Low
+		if v == nil {
+			key, v = "high", ks.High
+		}
+		ps.add(p+"."+key, ftoa(*v), "applies only to golden-hour and blue-hour", fmt.Sprintf(`for a band of your own write kind: "sun-band:<low>..<high>", e.g. "sun-band:%s..30"`, ftoa(*v)))
+		return
+	}
+	for _, o := range []struct {
+		key string
+		v   *float64
+	}{{"low", ks.Low}, {"high", ks.High}} {
+		if o.v != nil && !(*o.v > -90 && *o.v < 90) {
+			ps.add(p+"."+o.key, ftoa(*o.v), "must be within -90..90 (exclusive)", "the Sun's altitude in degrees, negative below the horizon")
+			return
+		}
+	}
+	if lo, hi := ks.Band(); !(lo < hi) {
+		key, v := "low", lo
+		if ks.Low == nil {
+			key, v = "high", hi
+		}
+		ps.add(p+"."+key, ftoa(v), fmt.Sprintf("the band %s..%s is empty: low must be below high", ftoa(lo), ftoa(hi)), fmt.Sprintf("the default %s is %g..%g", ks.Kind.Name, BandDefaults[ks.Kind.Name][0], BandDefaults[ks.Kind.Name][1]))
+	}
 }

@@ -556,3 +556,61 @@ func TestSiteAtmosphere(t *testing.T) {
 		t.Errorf("descriptions:\n%s\n%s", a[0].Description, b[0].Description)
 	}
 }
+
+// Light bands: sun-band:-6..-0.8333 runs in the morning from civil dawn to
+// sunrise, checked against the USNO tables for Ithaca, 1 January 2015
+// (testdata/reference/sun-times.csv sun-0003 civil dawn 08:04 and sun-0001
+// sunrise 08:36 at UTC−04:00: USNO one-year tables 'Civil Twilight' and
+// 'Rise and Set for the Sun', minute rounding); golden hour with its
+// high bound raised to 8° starts as early and ends later than the default
+// (6°), and sun-band:-4..6 gives exactly the default golden hour.
+func TestLightBands(t *testing.T) {
+	s := site(t, "ithaca", 42.45, -76.5, "America/New_York")
+	sk := sky(t, "2015-01-01", "2015-01-01")
+	ev, _, err := sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "sun-band:-6..-0.8333"), date("2015-01-01"), date("2015-01-01"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var morning *Event
+	for i := range ev {
+		if ev[i].Part == "morning" {
+			morning = &ev[i]
+		}
+	}
+	if morning == nil {
+		t.Fatalf("no morning band in %+v", ev)
+	}
+	for _, c := range []struct {
+		got  time.Time
+		want string
+	}{{morning.Start, "2015-01-01T12:04:00Z"}, {morning.End, "2015-01-01T12:36:00Z"}} {
+		w, _ := time.Parse(time.RFC3339, c.want)
+		if d := c.got.Sub(w); d < -time.Minute || d > time.Minute {
+			t.Errorf("band bound %s, USNO %s", c.got.Format(time.RFC3339), c.want)
+		}
+	}
+
+	v := site(t, "mid", 48.2, 16.4, "Europe/Vienna")
+	sk = sky(t, "2027-06-01", "2027-06-01")
+	golden := config.KindSpec{Kind: mustKinds(t, "golden-hour")[0]}
+	eight := 8.0
+	wide := golden
+	wide.High = &eight
+	band := config.KindSpec{Kind: mustKinds(t, "sun-band:-4..6")[0]}
+	var spans [3][]Event
+	for i, sp := range []config.KindSpec{golden, wide, band} {
+		spans[i], _, err = sk.EventsFor(context.Background(), PlaceOf(v), []config.KindSpec{sp}, date("2027-06-01"), date("2027-06-01"))
+		if err != nil || len(spans[i]) != 2 {
+			t.Fatalf("%v: %d spans, %v", sp.Kind, len(spans[i]), err)
+		}
+	}
+	for j := range 2 {
+		g, w, b := spans[0][j], spans[1][j], spans[2][j]
+		if w.End.Sub(w.Start) <= g.End.Sub(g.Start) || w.High != 8 {
+			t.Errorf("%s: golden hour to 8° (%v) not longer than to 6° (%v)", g.Part, w.End.Sub(w.Start), g.End.Sub(g.Start))
+		}
+		if !b.Start.Equal(g.Start) || !b.End.Equal(g.End) {
+			t.Errorf("%s: sun-band:-4..6 %v–%v, golden hour %v–%v", g.Part, b.Start, b.End, g.Start, g.End)
+		}
+	}
+}

@@ -36,6 +36,7 @@ type Event struct {
 	DayChange    time.Duration // DayLength minus the previous date's
 	SeasonLength time.Duration // seasons: time until the next season starts
 	Azimuth      float64       // sunrise/sunset/moonrise/moonset: direction, degrees from north through east
+	Low, High    float64       // golden-hour, blue-hour, sun-band: the altitude bounds, degrees
 	Illuminated  float64       // Moon events: illuminated fraction 0..1
 	Waxing       bool          // Moon events: the Moon is waxing
 	Lamp         time.Duration // lighting: length of the lamp period
@@ -216,7 +217,7 @@ func (c *collector) add(k config.Kind) error {
 var everyDate = map[string]bool{
 	"sunrise": true, "sunset": true, "solar-noon": true, "civil-dawn": true, "civil-dusk": true,
 	"nautical-dawn": true, "nautical-dusk": true, "astronomical-dawn": true, "astronomical-dusk": true,
-	"golden-hour": true, "blue-hour": true, "sun-altitude": true,
+	"golden-hour": true, "blue-hour": true, "sun-altitude": true, config.KindSunBand: true,
 	"moonrise": true, "moonset": true, "moon-transit": true, "dark-window": true,
 }
 
@@ -263,10 +264,11 @@ func (c *collector) compute(k config.Kind) error {
 		return c.crossings(k, k.Altitude, 0, fmt.Sprintf("altitude:%g", k.Altitude))
 	case "solar-noon":
 		return c.noons(k)
-	case "golden-hour":
-		return c.band(k, astro.GoldenHourLow, astro.GoldenHourHigh)
-	case "blue-hour":
-		return c.band(k, astro.BlueHourLow, astro.BlueHourHigh)
+	case "golden-hour", "blue-hour":
+		lo, hi := c.spec.Band()
+		return c.band(k, lo, hi)
+	case config.KindSunBand:
+		return c.band(k, k.Altitude, k.High)
 	case "march-equinox", "june-solstice", "september-equinox", "december-solstice", "seasons":
 		return c.seasons(k)
 	case "cross-quarter":
@@ -359,10 +361,11 @@ func altitudes(o astro.Observer, specs []config.KindSpec) []float64 {
 			out = append(out, astro.NauticalTwilight)
 		case "astronomical-dawn", "astronomical-dusk":
 			out = append(out, astro.AstronomicalTwilight)
-		case "golden-hour":
-			out = append(out, astro.GoldenHourLow, astro.GoldenHourHigh)
-		case "blue-hour":
-			out = append(out, astro.BlueHourLow, astro.BlueHourHigh)
+		case "golden-hour", "blue-hour":
+			lo, hi := sp.Band()
+			out = append(out, lo, hi)
+		case config.KindSunBand:
+			out = append(out, k.Altitude, k.High)
 		case "sun-altitude":
 			out = append(out, k.Altitude)
 		}
@@ -571,7 +574,7 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 			}
 			d := localDate(start, c.p.Location)
 			if c.inRange(d) {
-				c.events = append(c.events, Event{Kind: k, Start: start, End: m.t, Date: d, Part: part})
+				c.events = append(c.events, Event{Kind: k, Start: start, End: m.t, Date: d, Part: part, Low: low, High: high})
 				seen[d] = true
 			}
 			start = time.Time{}

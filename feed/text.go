@@ -169,6 +169,8 @@ func categories(k config.Kind) []string {
 	switch k.Name {
 	case "sun-altitude":
 		name = "Sun altitude"
+	case config.KindSunBand:
+		name = "Sun band"
 	case "photoperiod":
 		name = "Day length"
 	case "daily-summary":
@@ -235,15 +237,22 @@ func describe(s *siteInfo, e Event) (string, string) {
 		} else {
 			b.WriteString(", its highest of the day.\n" + cautionEyes)
 		}
-	case "golden-hour":
+	case "golden-hour", "blue-hour", config.KindSunBand:
+		lo, hi := signedDegrees(e.Low), signedDegrees(e.High)
+		light := map[string]string{
+			"golden-hour": "low, warm sunlight and long shadows, for photography and events",
+			"blue-hour":   "no direct sunlight where the band is below the horizon; an even, deep blue sky, for photography with the lights on",
+		}[e.Kind.Name]
+		if e.Kind.Name == config.KindSunBand {
+			title = "Sun between " + lo + " and " + hi
+			light = "a band of the Sun's altitude chosen for this feed"
+		}
 		title = title + " (" + partName(e.Part) + ")"
 		b.WriteString(title + " from " + at + " to " + localClock(e.End, loc) + " (" + hm(ToSecond(e.End).Sub(ToSecond(e.Start))) +
-			").\nThe Sun's centre is between −4° and +6°: low, warm sunlight and long shadows, for photography and events.\n")
-		b.WriteString(cautionEyes)
-	case "blue-hour":
-		title = title + " (" + partName(e.Part) + ")"
-		b.WriteString(title + " from " + at + " to " + localClock(e.End, loc) + " (" + hm(ToSecond(e.End).Sub(ToSecond(e.Start))) +
-			").\nThe Sun's centre is between 6° and 4° below the horizon: no direct sunlight; an even, deep blue sky, for photography with the lights on.")
+			").\nThe Sun's centre is between " + lo + " and " + hi + ": " + light + ".")
+		if e.High > -1 {
+			b.WriteString("\n" + cautionEyes) // the Sun may be in view
+		}
 	case "sun-altitude":
 		verb := DirectionWord(e) + " through"
 		title = fmt.Sprintf("Sun %s %s", verb, degrees(e.Kind.Altitude))
@@ -320,6 +329,15 @@ func roughly(d time.Duration) string {
 		return fmt.Sprintf("%d min", m)
 	}
 	return fmt.Sprintf("%d min %d s", m, sec)
+}
+
+// signedDegrees writes an altitude with its sign: "−4°", "+6°", "0°".
+func signedDegrees(v float64) string {
+	d := strings.Replace(strconv.FormatFloat(v, 'f', -1, 64), "-", "−", 1) + "°"
+	if v > 0 {
+		return "+" + d
+	}
+	return d
 }
 
 // bearing says where a body rises or sets, in degrees from the north
@@ -424,6 +442,13 @@ func describeNote(s *siteInfo, n Note) (string, string) {
 				title = fmt.Sprintf("No %s today: the Sun stays below it", name)
 			}
 			desc = title
+		case config.KindSunBand:
+			if above {
+				title = fmt.Sprintf("The Sun stays above %s all day", degrees(n.Kind.High))
+			} else {
+				title = fmt.Sprintf("The Sun stays below %s all day", degrees(n.Kind.Altitude))
+			}
+			desc = title
 		case "sun-altitude":
 			if above {
 				title = fmt.Sprintf("The Sun stays above %s all day", degrees(n.Kind.Altitude))
@@ -451,6 +476,8 @@ func noEventToday(k config.Kind) (string, string) {
 			fmt.Sprintf("No %s begins on this date: the one that began the day before runs into it", name)
 	case "sun-altitude":
 		name = "crossing of " + degrees(k.Altitude)
+	case config.KindSunBand:
+		return "No band of the Sun begins today", fmt.Sprintf("No span with the Sun between %s and %s begins on this date: the one that began the day before runs into it", degrees(k.Altitude), degrees(k.High))
 	}
 	return fmt.Sprintf("No %s today", name),
 		fmt.Sprintf("No %s on this date: around this time of year it comes close to midnight and moves from one date to the next", name)

@@ -241,7 +241,7 @@ func describe(s *siteInfo, e Event) (string, string) {
 		lo, hi := signedDegrees(e.Low), signedDegrees(e.High)
 		light := map[string]string{
 			"golden-hour": "low, warm sunlight and long shadows, for photography and events",
-			"blue-hour":   "no direct sunlight where the band is below the horizon; an even, deep blue sky, for photography with the lights on",
+			"blue-hour":   "no direct sunlight; an even, deep blue sky, for photography with the lights on",
 		}[e.Kind.Name]
 		if e.Kind.Name == config.KindSunBand {
 			title = "Sun between " + lo + " and " + hi
@@ -249,7 +249,7 @@ func describe(s *siteInfo, e Event) (string, string) {
 		}
 		title = title + " (" + partName(e.Part) + ")"
 		b.WriteString(title + " from " + at + " to " + localClock(e.End, loc) + " (" + hm(ToSecond(e.End).Sub(ToSecond(e.Start))) +
-			").\nThe Sun's centre is between " + lo + " and " + hi + ": " + light + ".")
+			").\nThe Sun's centre is between " + between(e.Low, e.High) + ": " + light + ".")
 		if e.High > -1 {
 			b.WriteString("\n" + cautionEyes) // the Sun may be in view
 		}
@@ -329,6 +329,15 @@ func roughly(d time.Duration) string {
 		return fmt.Sprintf("%d min", m)
 	}
 	return fmt.Sprintf("%d min %d s", m, sec)
+}
+
+// between writes the bounds of a band: "6° and 4° below the horizon" when
+// both are at or below it, else signed: "−4° and +6°".
+func between(lo, hi float64) string {
+	if hi <= 0 {
+		return strings.TrimPrefix(signedDegrees(-lo), "+") + " and " + strings.TrimPrefix(signedDegrees(-hi), "+") + " below the horizon"
+	}
+	return signedDegrees(lo) + " and " + signedDegrees(hi)
 }
 
 // signedDegrees writes an altitude with its sign: "−4°", "+6°", "0°".

@@ -298,22 +298,25 @@ func checkAlarm(ps *problems, path string, a *Duration) {
 }
 
 func checkFilter(ps *problems, p string, weekdays, months []string) {
-	for i, w := range weekdays {
-		if _, ok := ParseWeekday(w); !ok {
-			hint := "mon, tue, wed, thu, fri, sat or sun"
-			if near := closest(strings.ToLower(w), weekdayNames); near != "" {
+	for _, l := range []struct {
+		key, what, all string
+		values, names  []string
+		ok             func(string) bool
+	}{
+		{"weekdays", "not a day of the week", "mon, tue, wed, thu, fri, sat or sun", weekdays, weekdayNames,
+			func(s string) bool { _, ok := ParseWeekday(s); return ok }},
+		{"months", "not a month", "jan, feb, mar, apr, may, jun, jul, aug, sep, oct, nov or dec", months, monthNames,
+			func(s string) bool { _, ok := ParseMonth(s); return ok }},
+	} {
+		for i, v := range l.values {
+			if l.ok(v) {
+				continue
+			}
+			hint := l.all
+			if near := closest(strings.ToLower(v), l.names); near != "" {
 				hint = fmt.Sprintf("did you mean %q?", near)
 			}
-			ps.add(fmt.Sprintf("%s.weekdays[%d]", p, i), w, "not a day of the week", hint)
-		}
-	}
-	for i, m := range months {
-		if _, ok := ParseMonth(m); !ok {
-			hint := "jan, feb, mar, apr, may, jun, jul, aug, sep, oct, nov or dec"
-			if near := closest(strings.ToLower(m), monthNames); near != "" {
-				hint = fmt.Sprintf("did you mean %q?", near)
-			}
-			ps.add(fmt.Sprintf("%s.months[%d]", p, i), m, "not a month", hint)
+			ps.add(fmt.Sprintf("%s.%s[%d]", p, l.key, i), v, l.what, hint)
 		}
 	}
 }

@@ -8,7 +8,6 @@ import (
 	"slices"
 	"sort"
 	"strconv"
-	"strings"
 	"time"
 
 	"heliocal/astro"
@@ -210,24 +209,7 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 
 // sortEntries orders entries by Start, then UID. It sorts indices and moves
 // each entry once: entries are large, and swapping them dominated the sort.
-func sortEntries(es []Entry) []Entry {
-	idx := make([]int32, len(es))
-	for i := range idx {
-		idx[i] = int32(i)
-	}
-	slices.SortFunc(idx, func(i, j int32) int {
-		a, b := &es[i], &es[j]
-		if c := a.Start.Compare(b.Start); c != 0 {
-			return c
-		}
-		return strings.Compare(a.UID, b.UID)
-	})
-	out := make([]Entry, len(es))
-	for i, j := range idx {
-		out[i] = es[j]
-	}
-	return out
-}
+func sortEntries(es []Entry) []Entry { return sortEntries2(es, nil) }
 
 // summaries adds one all-day entry per date: sunrise, sunset, day length and
 // civil twilight.

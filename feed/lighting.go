@@ -153,9 +153,7 @@ func (c *collector) lighting(k config.Kind) error {
 // first latest_off clock time after its start. A clipped period is Short.
 func (c *collector) clip(e *Event, spec config.KindSpec) {
 	loc := c.p.Location
-	at := func(d time.Time, clock time.Duration) time.Time {
-		return time.Date(d.Year(), d.Month(), d.Day(), int(clock/time.Hour), int(clock%time.Hour/time.Minute), 0, 0, loc)
-	}
+	at := func(d time.Time, clock time.Duration) time.Time { return clockOn(d, clock, loc) }
 	if on, err := config.ParseClock(spec.EarliestOn); spec.EarliestOn != "" && err == nil && e.Part != partEvening {
 		d := localDate(e.End, loc)
 		t := at(d, on)

@@ -433,7 +433,7 @@ func (w *entryWriter) plan(pl *plan, pd planDate, times map[config.Kind]*kindTim
 // does not happen on d.
 func planTime(ts config.TimeSpec, d time.Time, loc *time.Location, times map[config.Kind]*kindTimes) (time.Time, bool) {
 	if ts.IsClock {
-		return time.Date(d.Year(), d.Month(), d.Day(), int(ts.Clock/time.Hour), int(ts.Clock%time.Hour/time.Minute), 0, 0, loc), true
+		return clockOn(d, ts.Clock, loc), true
 	}
 	t, ok := times[ts.Event].at(d)
 	if !ok {
@@ -523,4 +523,27 @@ func sortEntries2(a, b []Entry) []Entry {
 		out[i] = *at(j)
 	}
 	return out
+}
+
+// clockOn is the instant the local clock shows clock (since midnight) on
+// the local date d. A clock time skipped by a change to summer time is
+// taken as that long after the last instant before the change, as clocks
+// that are set forward show it (00:30 on a night that jumps from 00:00 to
+// 01:00 is 01:30); Go's time.Date may instead give the previous evening.
+func clockOn(d time.Time, clock time.Duration, loc *time.Location) time.Time {
+	h, m := int(clock/time.Hour), int(clock%time.Hour/time.Minute)
+	t := time.Date(d.Year(), d.Month(), d.Day(), h, m, 0, 0, loc)
+	if lt := t.In(loc); lt.Hour() == h && lt.Minute() == m && lt.Day() == d.Day() {
+		return t
+	}
+	wall := time.Date(d.Year(), d.Month(), d.Day(), h, m, 0, 0, time.UTC)
+	best := t
+	for _, probe := range []time.Time{t.Add(-6 * time.Hour), t, t.Add(6 * time.Hour)} {
+		_, off := probe.In(loc).Zone()
+		u := wall.Add(-time.Duration(off) * time.Second)
+		if localDate(u, loc).Equal(civil(d)) && (!localDate(best, loc).Equal(civil(d)) || u.After(best)) {
+			best = u
+		}
+	}
+	return best
 }

@@ -192,3 +192,28 @@ func TestPlanUIDsStable(t *testing.T) {
 		t.Errorf("all-day plan %+v", a[0])
 	}
 }
+
+// TestPlanClockSkipped: in America/Havana the clocks go from 00:00 to 01:00
+// on Sunday 14 March 2027 (tz database), so a plan at "00:30" that night
+// starts at 01:30 CDT (05:30 UT), on its own date, not the evening before.
+func TestPlanClockSkipped(t *testing.T) {
+	s := site(t, "hav", 23.13, -82.38, "America/Havana")
+	loc := s.TimeZone.Location
+	if _, off := time.Date(2027, 3, 14, 2, 0, 0, 0, loc).Zone(); off != -4*3600 {
+		t.Fatalf("zone data: offset %d on 14 March 2027", off)
+	}
+	es := planEntries(t, s, "2027-03-13", "2027-03-15", config.Plan{Title: "Night check", Date: "every day", Start: "00:30", For: config.Duration(30 * time.Minute)})
+	want := []time.Time{
+		time.Date(2027, 3, 13, 5, 30, 0, 0, time.UTC), // 00:30 CST
+		time.Date(2027, 3, 14, 5, 30, 0, 0, time.UTC), // 01:30 CDT
+		time.Date(2027, 3, 15, 4, 30, 0, 0, time.UTC), // 00:30 CDT
+	}
+	if len(es) != 3 {
+		t.Fatalf("%d entries", len(es))
+	}
+	for i, e := range es {
+		if !e.Start.Equal(want[i]) || localDate(e.Start, loc) != e.Date {
+			t.Errorf("%s: starts %s, want %s", e.Date.Format(time.DateOnly), e.Start.In(loc), want[i].In(loc))
+		}
+	}
+}

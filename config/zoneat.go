@@ -18,8 +18,10 @@ import (
 // timezone-boundary-builder polygons, simplified, with the nautical zones of
 // the open sea): "Europe/Vienna" in Vienna, "Etc/GMT+2" (UTC−2: the Etc signs
 // are inverted) in the middle of the Atlantic. The map is built on the first
-// call only (about 0.6 s and 25 MB on a small machine); later calls take a
-// few microseconds. ZoneAt is safe for concurrent use.
+// call only: a map of tiles that lie wholly within one zone answers for most
+// places (0.5 s and 30 MB once); a place in a tile that a border crosses
+// also loads the polygons (a further 0.7–4 s and 150 MB peak, 25 MB kept).
+// Later calls take microseconds. ZoneAt is safe for concurrent use.
 //
 // The polygons are simplified, so a place within about a kilometre of a zone
 // border may get the neighbour's zone: name the zone where it matters.
@@ -30,11 +32,17 @@ func ZoneAt(lat, lon float64) (string, error) {
 	if math.IsNaN(lon) || lon < -180 || lon > 180 {
 		return "", fmt.Errorf("longitude %v: must be within -180..180", lon)
 	}
-	f, err := zoneFinder()
-	if err != nil {
-		return "", err
+	name := ""
+	if tiles, err := zoneTiles(); err == nil {
+		name = tiles.GetTimezoneName(lon, lat)
 	}
-	name := f.GetTimezoneName(lon, lat)
+	if name == "" { // near a border: the polygons decide
+		f, err := zoneFinder()
+		if err != nil {
+			return "", err
+		}
+		name = f.GetTimezoneName(lon, lat)
+	}
 	if name == "" {
 		name = nauticalZone(lon)
 	}
@@ -88,9 +96,20 @@ func nauticalZone(lon float64) string {
 	return fmt.Sprintf("Etc/GMT+%d", -n)
 }
 
-// zoneFinder loads the zone map once, on first use: the polygon finder over
-// the compressed simplified polygons (4.7 MB in the binary), without the
-// tile index, which would add size and start-up time to save microseconds.
+// zoneTiles loads, once, the tiles that lie wholly within one zone (2 MB in
+// the binary): they answer for most places at a fifth of the cost of the
+// polygons, and exactly as the polygons would.
+var zoneTiles = sync.OnceValues(func() (tzf.F, error) {
+	in := &pb.PreindexTimezones{}
+	if err := proto.Unmarshal(tzfrellite.PreindexData, in); err != nil {
+		return nil, fmt.Errorf("time zone tiles: %w", err)
+	}
+	return tzf.NewFuzzyFinderFromPB(in)
+})
+
+// zoneFinder loads the zone polygons once, when a place falls in a tile that
+// a border crosses: the polygon finder over the compressed simplified
+// polygons (4.7 MB in the binary).
 var zoneFinder = sync.OnceValues(loadZoneMap)
 
 func loadZoneMap() (tzf.F, error) {

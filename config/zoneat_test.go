@@ -1,7 +1,13 @@
 package config
 
 import (
+	"slices"
 	"strings"
+
+	"github.com/ringsaturn/tzf"
+	tzfrellite "github.com/ringsaturn/tzf-rel-lite"
+	pb "github.com/ringsaturn/tzf/gen/go/tzf/v1"
+	"google.golang.org/protobuf/proto"
 	"sync"
 	"testing"
 	"time"
@@ -94,6 +100,45 @@ func TestZoneAtConcurrent(t *testing.T) {
 	wg.Wait()
 }
 
+// The tiles answer as the polygons do wherever they answer: on a 3° grid
+// over the globe and at the named places. Where polygons overlap (disputed
+// land, e.g. Abyei between the two Sudans) the tiles give one of them.
+func TestZoneTilesAgreeWithPolygons(t *testing.T) {
+	tiles, err := zoneTiles()
+	if err != nil {
+		t.Fatal(err)
+	}
+	polys, err := zoneFinder()
+	if err != nil {
+		t.Fatal(err)
+	}
+	step := 3.0
+	if testing.Short() {
+		step = 9
+	}
+	answered, total := 0, 0
+	check := func(lat, lon float64) {
+		total++
+		if z := tiles.GetTimezoneName(lon, lat); z != "" {
+			answered++
+			if ps, _ := polys.GetTimezoneNames(lon, lat); !slices.Contains(ps, z) {
+				t.Errorf("%v, %v: tiles say %s, polygons %v", lat, lon, z, ps)
+			}
+		}
+	}
+	for lat := -89.0; lat < 90; lat += step {
+		for lon := -179.0; lon < 180; lon += step {
+			check(lat, lon)
+		}
+	}
+	for _, p := range zonePlaces {
+		check(p.lat, p.lon)
+	}
+	if answered < total/2 {
+		t.Errorf("the tiles answer only %d of %d points", answered, total)
+	}
+}
+
 func TestNauticalZone(t *testing.T) {
 	// common practice: zone n covers longitudes 15n ± 7.5°, Etc/GMT signs inverted
 	for _, c := range []struct {
@@ -137,10 +182,23 @@ func BenchmarkZoneAt(b *testing.B) {
 	}
 }
 
+// BenchmarkZoneMapLoad measures loading the polygons (a place near a
+// border); BenchmarkZoneTilesLoad the tiles alone (most places).
 func BenchmarkZoneMapLoad(b *testing.B) {
 	for b.Loop() {
-		zoneFinder = sync.OnceValues(loadZoneMap)
-		if _, err := ZoneAt(0, 0); err != nil {
+		if _, err := loadZoneMap(); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+func BenchmarkZoneTilesLoad(b *testing.B) {
+	for b.Loop() {
+		in := &pb.PreindexTimezones{}
+		if err := proto.Unmarshal(tzfrellite.PreindexData, in); err != nil {
+			b.Fatal(err)
+		}
+		if _, err := tzf.NewFuzzyFinderFromPB(in); err != nil {
 			b.Fatal(err)
 		}
 	}

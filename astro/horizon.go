@@ -7,10 +7,11 @@ package astro
 // The search is generic over a body track, so the Sun (ephemeris.go) and the
 // Moon share it. The internal hook is:
 //
-//	tr := newTrack(start, step, n, func(e Epoch) (ra, dec, dist float64) {
+//	tr := newTrack(start, step, n, func(e Epoch) (ra, dec, dist, eqEq float64) {
 //		// apparent geocentric right ascension and declination of date
-//		// (radians) and distance from the Earth's centre (Earth radii,
-//		// earthRadiusKm) at epoch e
+//		// (radians), distance from the Earth's centre (Earth radii,
+//		// earthRadiusKm) and the equation of the equinoxes Δψ cos ε
+//		// (radians, from the nutation the position needed anyway) at epoch e
 //	})
 //	st := newSite(o)                                   // observer, checked first by o.Validate()
 //	ext := tr.extrema(st, a, b)                        // culminations over [a − 1 day, b + 1 day] (Unix s)
@@ -79,8 +80,9 @@ func leapCount(sec float64) float64 {
 }
 
 // newTrack samples sample() at start + k·step, k = 0..n−1. Distances are in
-// Earth radii.
-func newTrack(start, step float64, n int, sample func(e Epoch) (ra, dec, dist float64)) *track {
+// Earth radii; eqEq is the equation of the equinoxes for the apparent
+// sidereal time.
+func newTrack(start, step float64, n int, sample func(e Epoch) (ra, dec, dist, eqEq float64)) *track {
 	tr := &track{start: start, step: step, g: make([]float64, n), dec: make([]float64, n), dist: make([]float64, n)}
 	end := start + float64(n-1)*step
 	tr.leap0 = leapCount(start)
@@ -92,9 +94,8 @@ func newTrack(start, step float64, n int, sample func(e Epoch) (ra, dec, dist fl
 	for k := range n {
 		sec := start + float64(k)*step
 		e := epochOf(sec)
-		ra, dec, dist := sample(e)
-		dpsi, deps := nutationRad(e.JDE)
-		gast := meanSiderealRaw(e.JDUT1)*deg2rad + dpsi*math.Cos(meanObliquityRad(e.JDE)+deps)
+		ra, dec, dist, eqEq := sample(e)
+		gast := meanSiderealRaw(e.JDUT1)*deg2rad + eqEq
 		g := gast - ra - siderealRate*(sec-start) - siderealRate*leapCount(sec)
 		if k > 0 {
 			g = tr.g[k-1] + math.Remainder(g-tr.g[k-1], 2*math.Pi)

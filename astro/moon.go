@@ -52,6 +52,7 @@ type moonState struct {
 	lon, lat float64 // apparent ecliptic longitude [0, 2π) and latitude, true equinox of date
 	ra, dec  float64 // apparent right ascension [0, 2π) and declination, true equator of date
 	dist     float64 // distance between the centres, km
+	eqEq     float64 // equation of the equinoxes Δψ cos ε, radians
 }
 
 // moonApparent returns the apparent geocentric Moon at jde (TT), as described
@@ -70,7 +71,7 @@ func moonApparentFrom(jde, lon, lat, dist float64) moonState {
 	eps := meanObliquityRad(jde) + deps
 	lon = norm2Pi(lon + dpsi)
 	ra, dec := eclipticToEquatorial(lon, lat, eps)
-	return moonState{lon: lon, lat: lat, ra: ra, dec: dec, dist: dist}
+	return moonState{lon: lon, lat: lat, ra: ra, dec: dec, dist: dist, eqEq: dpsi * math.Cos(eps)}
 }
 
 // eclipticToEquatorial converts ecliptic longitude and latitude to right

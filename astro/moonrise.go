@@ -73,10 +73,10 @@ func NewMoonEphemeris(from, to time.Time) (*MoonEphemeris, error) {
 	}
 	lon, lat, dist := make([]float64, n), make([]float64, n), make([]float64, n)
 	elpUniform(jde, moonTrackStep/secondsPerDay, lon, lat, dist)
-	tr := newTrack(start, moonTrackStep, n, func(e Epoch) (ra, dec, d float64) {
+	tr := newTrack(start, moonTrackStep, n, func(e Epoch) (ra, dec, d, eqEq float64) {
 		k := int(math.Round((jdToUnix(e.JD) - start) / moonTrackStep))
 		s := moonApparentFrom(e.JDE, lon[k], lat[k], dist[k])
-		return s.ra, s.dec, s.dist / earthRadiusKm
+		return s.ra, s.dec, s.dist / earthRadiusKm, s.eqEq
 	})
 	return &MoonEphemeris{coverage: coverage{qa, qb}, moon: tr, sun: sun}, nil
 }

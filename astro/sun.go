@@ -68,6 +68,12 @@ type sunApparent struct {
 // apparentSun computes the apparent geocentric Sun at jde (TT).
 func apparentSun(jde float64) sunApparent {
 	L, B, R := earthHeliocentric(jde)
+	return apparentSunFrom(jde, L, B, R)
+}
+
+// apparentSunFrom is apparentSun from the Earth's heliocentric L, B, R at
+// jde (VSOP87D or its Chebyshev fit).
+func apparentSunFrom(jde, L, B, R float64) sunApparent {
 	lambda, beta := sunFK5(jde, L, B)
 	dpsi, deps := nutationRad(jde)
 	eps := meanObliquityRad(jde) + deps

@@ -202,9 +202,14 @@ func NewEphemeris(from, to time.Time) (*Ephemeris, error) {
 	const earthRadiiPerAU = auKm / earthRadiusKm
 	end := start + float64(n-1)*secondsPerDay
 	series := newEarthSeries(epochOf(start).JDE-0.5, epochOf(end).JDE+0.5)
+	jdes := make([]float64, n)
+	for k := range jdes {
+		jdes[k] = epochOf(start + float64(k)*secondsPerDay).JDE
+	}
+	Ls, Bs, Rs := series.daily(jdes)
 	tr := newTrack(start, secondsPerDay, n, func(e Epoch) (ra, dec, dist, eqEq float64) {
-		L, B, R := series.at(e.JDE)
-		s := apparentSunFrom(e.JDE, L, B, R)
+		k := int(math.Round((jdToUnix(e.JD) - start) / secondsPerDay))
+		s := apparentSunFrom(e.JDE, Ls[k], Bs[k], Rs[k])
 		return s.ra, s.dec, s.r * earthRadiiPerAU, s.dpsi * math.Cos(s.eps)
 	})
 	return &Ephemeris{coverage: coverage{qa, qb}, sun: tr}, nil

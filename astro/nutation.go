@@ -103,18 +103,26 @@ func nutationRad(jde float64) (dpsi, deps float64) {
 	Mp := 134.96298 + T*(477198.867398+T*(0.0086972+T/56250))
 	F := 93.27191 + T*(483202.017538+T*(-0.0036825+T/327270))
 	Om := 125.04452 + T*(-1934.136261+T*(0.0020708+T/450000))
-	D = math.Mod(D, 360) * deg2rad
-	M = math.Mod(M, 360) * deg2rad
-	Mp = math.Mod(Mp, 360) * deg2rad
-	F = math.Mod(F, 360) * deg2rad
-	Om = math.Mod(Om, 360) * deg2rad
+	// Each term's argument is a sum of small multiples (−3..3) of the five
+	// fundamental arguments, so its sine and cosine are products of the
+	// arguments' powers on the unit circle: five sines and cosines per call
+	// instead of 63.
+	var pw [5][7]complex128 // pw[a][n+3] = e^{i n x_a}
+	for a, x := range [5]float64{D, M, Mp, F, Om} {
+		sx, cx := math.Sincos(math.Mod(x, 360) * deg2rad)
+		z := complex(cx, sx)
+		pw[a][3] = 1
+		for n := 1; n <= 3; n++ {
+			pw[a][3+n] = pw[a][2+n] * z
+			pw[a][3-n] = complex(real(pw[a][3+n]), -imag(pw[a][3+n]))
+		}
+	}
 	var s, c float64
 	for i := range nutationTable {
 		n := &nutationTable[i]
-		arg := float64(n.d)*D + float64(n.m)*M + float64(n.mp)*Mp + float64(n.f)*F + float64(n.om)*Om
-		sa, ca := math.Sincos(arg)
-		s += (n.s0 + n.s1*T) * sa
-		c += (n.c0 + n.c1*T) * ca
+		z := pw[0][n.d+3] * pw[1][n.m+3] * pw[2][n.mp+3] * pw[3][n.f+3] * pw[4][n.om+3]
+		s += (n.s0 + n.s1*T) * imag(z)
+		c += (n.c0 + n.c1*T) * real(z)
 	}
 	return s * 1e-4 * arcsec2rad, c * 1e-4 * arcsec2rad
 }

@@ -1,6 +1,7 @@
 package feed
 
 import (
+	"cmp"
 	"context"
 	"fmt"
 	"slices"
@@ -156,24 +157,86 @@ func (s *Sky) Events(ctx context.Context, p Place, kinds []config.Kind, first, l
 // computed (a dark window's largest illuminated fraction); the options that
 // only change how entries look (offset, label) are for the catalogue.
 func (s *Sky) EventsFor(ctx context.Context, p Place, specs []config.KindSpec, first, last time.Time) ([]Event, []Note, error) {
+	return s.eventsFor(ctx, p, specs, first, last, &buffers{})
+}
+
+// buffers are the slices one computation fills, kept by a caller that
+// computes chunk after chunk (EventChunks) so that each chunk reuses them.
+type buffers struct {
+	events, merged []Event
+	notes, mnotes  []Note
+}
+
+func (s *Sky) eventsFor(ctx context.Context, p Place, specs []config.KindSpec, first, last time.Time, buf *buffers) ([]Event, []Note, error) {
 	first, last = civil(first), civil(last)
 	if last.Before(first) {
 		return nil, nil, fmt.Errorf("feed: date range ends (%s) before it starts (%s)",
 			last.Format(time.DateOnly), first.Format(time.DateOnly))
 	}
-	c := &collector{ctx: ctx, sky: s, p: p, first: first, last: last}
+	c := &collector{ctx: ctx, sky: s, p: p, first: first, last: last, events: buf.events[:0], notes: buf.notes[:0]}
 	if err := c.prepare(altitudes(p.Observer, specs)...); err != nil {
 		return nil, nil, fmt.Errorf("feed: %w", err)
 	}
+	// Each kind appends its own run of events (and of notes), already in
+	// order or nearly so; the runs are merged instead of sorted.
+	evRuns, noteRuns := make([]int, 1, len(specs)+1), make([]int, 1, len(specs)+1)
 	for _, k := range specs {
 		c.maxLit, c.spec = k.MaxIllumination, k
 		if err := c.add(k.Kind); err != nil {
 			return nil, nil, fmt.Errorf("feed: %s: %w", k.Kind, err)
 		}
+		evRuns, noteRuns = append(evRuns, len(c.events)), append(noteRuns, len(c.notes))
 	}
-	sort.SliceStable(c.events, func(i, j int) bool { return c.events[i].Start.Before(c.events[j].Start) })
-	sort.SliceStable(c.notes, func(i, j int) bool { return c.notes[i].Date.Before(c.notes[j].Date) })
-	return c.events, c.notes, nil
+	buf.events, buf.notes = c.events, c.notes
+	buf.merged = mergeRuns(c.events, evRuns, buf.merged[:0], func(e *Event) int64 { return e.Start.UnixNano() })
+	buf.mnotes = mergeRuns(c.notes, noteRuns, buf.mnotes[:0], func(n *Note) int64 { return n.Date.Unix() })
+	return buf.merged, buf.mnotes, nil
+}
+
+// mergeRuns appends to out the items of the runs xs[bounds[i]:bounds[i+1]]
+// in the order of key: a stable sort of xs (ties keep the run order, then
+// the order within a run) that sorts only runs that are out of order and
+// then merges them.
+func mergeRuns[T any](xs []T, bounds []int, out []T, key func(*T) int64) []T {
+	heads := make([]int, 0, len(bounds))
+	for i := 0; i+1 < len(bounds); i++ {
+		run := xs[bounds[i]:bounds[i+1]]
+		for j := 1; j < len(run); j++ {
+			if key(&run[j]) < key(&run[j-1]) {
+				slices.SortStableFunc(run, func(a, b T) int { return cmp.Compare(key(&a), key(&b)) })
+				break
+			}
+		}
+		if len(run) > 0 {
+			heads = append(heads, i)
+		}
+	}
+	if len(heads) <= 1 {
+		return append(out, xs...)
+	}
+	pos := slices.Clone(bounds[:len(bounds)-1])
+	keys := make([]int64, len(heads)) // key of each head's next item
+	for j, r := range heads {
+		keys[j] = key(&xs[pos[r]])
+	}
+	out = slices.Grow(out, len(xs))
+	for len(heads) > 0 {
+		best := 0
+		for j := 1; j < len(heads); j++ {
+			if keys[j] < keys[best] {
+				best = j
+			}
+		}
+		r := heads[best]
+		out = append(out, xs[pos[r]])
+		if pos[r]++; pos[r] == bounds[r+1] {
+			heads = slices.Delete(heads, best, best+1)
+			keys = slices.Delete(keys, best, best+1)
+		} else {
+			keys[best] = key(&xs[pos[r]])
+		}
+	}
+	return out
 }
 
 type collector struct {
@@ -184,6 +247,7 @@ type collector struct {
 	events      []Event
 	notes       []Note
 	lengths     []time.Duration // day lengths for first-1..last, computed once
+	starts      []time.Time     // local midnights beginning first-1..last+2, computed once
 	thresholds  map[float64]*threshold
 	maxLit      float64         // dark-window: the Moon's largest illuminated fraction still dark
 	spec        config.KindSpec // the options of the kind being added (lighting)
@@ -389,8 +453,9 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 	}
 	xs, up := th.xs, th.upFirst
 	c.events = slices.Grow(c.events, len(xs))
+	starts := c.dayStarts()
 	for i, d := 0, c.first; !d.After(c.last); i, d = i+1, d.AddDate(0, 0, 1) {
-		start, end := midnight(d, c.p.Location), midnight(d.AddDate(0, 0, 1), c.p.Location)
+		start, end := starts[i+1], starts[i+2]
 		for len(xs) > 0 && xs[0].Time.Before(start) {
 			up = xs[0].Direction == astro.Rising
 			xs = xs[1:]
@@ -423,6 +488,19 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 	return nil
 }
 
+// dayStarts returns, computed once for all kinds, the instants of the
+// local midnights that begin the dates first−1..last+2.
+func (c *collector) dayStarts() []time.Time {
+	if c.starts == nil {
+		n := int(c.last.Sub(c.first).Hours()/24+0.5) + 4
+		c.starts = make([]time.Time, n)
+		for i := range c.starts {
+			c.starts[i] = midnight(c.first.AddDate(0, 0, i-1), c.p.Location)
+		}
+	}
+	return c.starts
+}
+
 // dayLengths computes, once, the time the Sun's upper limb is above the
 // horizon on each local date first-1..last: the photoperiod.
 func (c *collector) dayLengths() error {
@@ -453,8 +531,9 @@ func (c *collector) above(alt float64) ([]time.Duration, error) {
 	n := int(c.last.Sub(c.first).Hours()/24+0.5) + 2
 	lengths := make([]time.Duration, n)
 	cur := from
+	starts := c.dayStarts()
 	for day := 0; day < n; {
-		dayEnd := midnight(c.first.AddDate(0, 0, day), c.p.Location)
+		dayEnd := starts[day+1]
 		next, crossing := dayEnd, len(xs) > 0 && xs[0].Time.Before(dayEnd)
 		if crossing {
 			next = xs[0].Time

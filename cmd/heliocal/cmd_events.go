@@ -2,14 +2,11 @@ package main
 
 import (
 	"context"
-	"encoding/json"
 	"fmt"
-	"io"
 	"math"
 	"sort"
 	"strconv"
 	"strings"
-	"text/tabwriter"
 	"time"
 
 	"github.com/spf13/cobra"
@@ -282,21 +279,17 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 			specs[i].MaxIllumination = o.maxLit
 		}
 	}
-	events, notes, err := sky.EventsFor(ctx, feed.PlaceOf(site), specs, from, to)
-	if err != nil {
+	if o.format == "ics" {
+		return writeEventsICS(ctx, g.stdout, site, specs, sky, from, to)
+	}
+	out := newEventSink(o.format, g.stdout, site, from, to)
+	if out == nil {
+		return badInput("--format: %q: use table, json, csv or ics", o.format)
+	}
+	if err := sky.EventChunks(ctx, feed.PlaceOf(site), specs, from, to, out.chunk); err != nil {
 		return err
 	}
-	switch o.format {
-	case "json":
-		return writeEventsJSON(g.stdout, site, from, to, events, notes)
-	case "csv":
-		return writeEventsCSV(g.stdout, site, events, notes)
-	case "ics":
-		return writeEventsICS(ctx, g.stdout, site, specs, sky, from, to)
-	case "table":
-		return writeEventsTable(g.stdout, site, events, notes)
-	}
-	return badInput("--format: %q: use table, json, csv or ics", o.format)
+	return out.close()
 }
 
 const jsonTime = "2006-01-02T15:04:05.000Z07:00"
@@ -429,25 +422,6 @@ func azimuthCell(e feed.Event) string {
 // through an altitude, day length "rising" or "falling" through a duration.
 func direction(e feed.Event) string { return feed.DirectionWord(e) }
 
-func writeEventsJSON(w io.Writer, s *config.Site, from, to time.Time, events []feed.Event, notes []feed.Note) error {
-	out := struct {
-		Events []jsonEvent `json:"events"`
-		Notes  []jsonNote  `json:"notes"`
-		Site   jsonSite    `json:"site"`
-	}{Events: []jsonEvent{}, Notes: []jsonNote{}}
-	for _, e := range events {
-		out.Events = append(out.Events, toJSONEvent(e))
-	}
-	for _, n := range notes {
-		out.Notes = append(out.Notes, toJSONNote(n))
-	}
-	out.Site = jsonSite{Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation,
-		Horizon: s.Horizon, TimeZone: s.TimeZone.String(), From: from.Format(time.DateOnly), To: to.Format(time.DateOnly)}
-	enc := json.NewEncoder(w)
-	enc.SetIndent("", "  ")
-	return enc.Encode(out)
-}
-
 type row struct {
 	date  time.Time
 	at    time.Time
@@ -471,35 +445,6 @@ func mergeRows(events []feed.Event, notes []feed.Note) []row {
 		return rows[i].at.Before(rows[j].at)
 	})
 	return rows
-}
-
-func writeEventsTable(w io.Writer, s *config.Site, events []feed.Event, notes []feed.Note) error {
-	loc := s.TimeZone.Location
-	ns, ew := 'N', 'E'
-	lat, lon := s.Latitude, s.Longitude
-	if lat < 0 {
-		ns, lat = 'S', -lat
-	}
-	if lon < 0 {
-		ew, lon = 'W', -lon
-	}
-	fmt.Fprintf(w, "%s: %.4f° %c, %.4f° %c, %g m, %s\n\n", s.Name, lat, ns, lon, ew, s.Elevation, loc)
-	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
-	fmt.Fprintln(tw, "DATE\tTIME\tKIND\tDETAILS")
-	for _, r := range mergeRows(events, notes) {
-		if r.note != nil {
-			fmt.Fprintf(tw, "%s\t%s\t%s\t%s\n", r.note.Date.Format("2006-01-02 Mon"), "-", r.note.Kind, noteText(r.note))
-			continue
-		}
-		e := r.event
-		at := "all day"
-		if !e.DateOnly() {
-			t := feed.ToSecond(e.Start).In(loc)
-			at = t.Format("15:04:05 MST")
-		}
-		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\n", e.Date.Format("2006-01-02 Mon"), at, e.Kind, details(e, loc))
-	}
-	return tw.Flush()
 }
 
 // stateName names a note's state in JSON and CSV: "always-above",

@@ -293,18 +293,22 @@ func noteText(n *feed.Note) string {
 	return "no lamps needed until " + n.Until.Format("2006-01-02")
 }
 
-// writeEventsCSV writes events and notes as CSV: every field of the JSON
-// form, the instants both in UTC and in local time with a numeric offset.
-func writeEventsCSV(w io.Writer, s *config.Site, events []feed.Event, notes []feed.Note) error {
-	loc := s.TimeZone.Location
-	cw := csv.NewWriter(w)
-	_ = cw.Write([]string{"date", "kind", "start_utc", "end_utc", "direction", "start_local", "end_local", "state",
-		"until", "part", "altitude_deg", "distance_au", "day_length_s", "day_change_s", "illuminated", "lamp_s",
-		"target_not_reached", "uncertainty_s", "azimuth_deg"})
+// eventsCSVHeader is the header row of the events as CSV: every field of
+// the JSON form, the instants both in UTC and in local time with a numeric
+// offset.
+var eventsCSVHeader = []string{"date", "kind", "start_utc", "end_utc", "direction", "start_local", "end_local", "state",
+	"until", "part", "altitude_deg", "distance_au", "day_length_s", "day_change_s", "illuminated", "lamp_s",
+	"target_not_reached", "uncertainty_s", "azimuth_deg"}
+
+// writeEventsCSVRows writes the rows of events and notes (one chunk of
+// dates) under eventsCSVHeader, by local date, notes first on their date.
+func writeEventsCSVRows(cw *csv.Writer, loc *time.Location, events []feed.Event, notes []feed.Note) error {
 	for _, r := range mergeRows(events, notes) {
 		if r.note != nil {
 			n := toJSONNote(*r.note)
-			_ = cw.Write([]string{n.Date, n.Kind, "", "", "", "", "", n.State, n.Until, "", "", "", "", "", "", "", "", "", ""})
+			if err := cw.Write([]string{n.Date, n.Kind, "", "", "", "", "", n.State, n.Until, "", "", "", "", "", "", "", "", "", ""}); err != nil {
+				return err
+			}
 			continue
 		}
 		e := r.event
@@ -316,12 +320,14 @@ func writeEventsCSV(w io.Writer, s *config.Site, events []feed.Event, notes []fe
 		if !e.End.IsZero() {
 			endLocal = localStamp(e.End, loc)
 		}
-		_ = cw.Write([]string{j.Date, j.Kind, j.Start, j.End, j.Direction, startLocal, endLocal, "",
+		err := cw.Write([]string{j.Date, j.Kind, j.Start, j.End, j.Direction, startLocal, endLocal, "",
 			"", j.Part, num(j.Altitude), num(j.Distance), num(j.DayLength), num(j.DayChange), num(j.Lit), num(j.Lamp),
 			yes(j.Short), num(j.Uncertainty), azimuthCell(*e)})
+		if err != nil {
+			return err
+		}
 	}
-	cw.Flush()
-	return cw.Error()
+	return nil
 }
 
 // writeEventsICS writes the events of a query as a one-off iCalendar file,

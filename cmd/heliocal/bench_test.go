@@ -1,0 +1,55 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"io"
+	"testing"
+)
+
+// eventsArgs is the events command measured against PyEphem by
+// tools/pyephem-compare (README, Performance): 20 years, 11 kinds of the
+// Sun's daily events, JSON.
+var eventsArgs = []string{"events", "--lat", "47.3", "--lon", "8.5", "--elev", "400", "--tz", "UTC",
+	"--from", "2020-01-01", "--to", "2039-12-31", "--kinds",
+	"sunrise,sunset,solar-noon,civil-dawn,civil-dusk,nautical-dawn,nautical-dusk,astronomical-dawn,astronomical-dusk,sun-altitude:6,sun-altitude:-4",
+	"--format", "json"}
+
+// countingWriter counts the bytes and events ("kind" keys) written.
+type countingWriter struct{ bytes, events int }
+
+func (c *countingWriter) Write(p []byte) (int, error) {
+	c.bytes += len(p)
+	c.events += bytes.Count(p, []byte(`"kind"`))
+	return len(p), nil
+}
+
+// benchCommand runs the whole command path (flags, ephemeris, search,
+// writing) as main does, output discarded but counted.
+func benchCommand(b *testing.B, args []string) {
+	b.ReportAllocs()
+	var n int
+	for b.Loop() {
+		w := &countingWriter{}
+		if code := run(context.Background(), args, w, io.Discard, noEnv); code != 0 {
+			b.Fatalf("exit %d", code)
+		}
+		n = w.events
+	}
+	b.ReportMetric(float64(n), "events/op")
+	b.ReportMetric(float64(n)*float64(b.N)/b.Elapsed().Seconds(), "events/s")
+}
+
+// BenchmarkEventsCommand20Years: the 20-year, 11-kind JSON events command
+// (≈ 95,000 events), ephemeris build included.
+func BenchmarkEventsCommand20Years(b *testing.B) { benchCommand(b, eventsArgs) }
+
+// BenchmarkEventsCommand20YearsCSV and …Table: the same in the other
+// formats.
+func BenchmarkEventsCommand20YearsCSV(b *testing.B) {
+	benchCommand(b, append(eventsArgs[:len(eventsArgs)-1:len(eventsArgs)-1], "csv"))
+}
+
+func BenchmarkEventsCommand20YearsTable(b *testing.B) {
+	benchCommand(b, append(eventsArgs[:len(eventsArgs)-1:len(eventsArgs)-1], "table"))
+}

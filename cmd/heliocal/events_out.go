@@ -1,0 +1,424 @@
+package main
+
+import (
+	"bufio"
+	"encoding/csv"
+	"encoding/json"
+	"fmt"
+	"io"
+	"math"
+	"strconv"
+	"time"
+	"unicode/utf8"
+
+	"heliocal/config"
+	"heliocal/feed"
+)
+
+// The events command writes its output chunk by chunk as feed.EventChunks
+// computes it (JSON, CSV or the table), so memory does not grow with the
+// span. An eventSink is one output format.
+type eventSink interface {
+	chunk(c feed.Chunk) error
+	close() error // writes what ends the document and flushes
+}
+
+// newEventSink returns the writer for format ("json", "csv", "table"), or
+// nil for an unknown format.
+func newEventSink(format string, w io.Writer, s *config.Site, from, to time.Time) eventSink {
+	bw := bufio.NewWriterSize(w, 64<<10)
+	switch format {
+	case "json":
+		return &jsonSink{w: bw, site: s, from: from, to: to}
+	case "csv":
+		return newCSVSink(bw, s)
+	case "table":
+		return newTableSink(bw, s)
+	}
+	return nil
+}
+
+// jsonSink writes {"events": […], "notes": […], "site": {…}} indented by
+// two spaces, byte for byte as encoding/json's Encoder with SetIndent("",
+// "  ") writes the same document. Events are ordered by start across
+// chunks: the events of a chunk that start after its last date are held
+// back and merged with the next chunk's. Notes follow the events in the
+// document, so they are kept (already encoded, about 100 bytes each) until
+// the end; most places have none or a few per year.
+type jsonSink struct {
+	w        *bufio.Writer
+	site     *config.Site
+	from, to time.Time
+	buf      []byte
+	events   int
+	notes    []byte
+	held     []feed.Event
+	merged   []feed.Event
+	names    map[config.Kind]string // kind names, formatted once
+}
+
+func (j *jsonSink) chunk(c feed.Chunk) error {
+	if j.events == 0 && j.buf == nil {
+		j.buf = append(j.buf, "{\n  \"events\": ["...)
+	}
+	loc := j.site.TimeZone.Location
+	next := time.Date(c.Last.Year(), c.Last.Month(), c.Last.Day()+1, 0, 0, 0, 0, loc)
+	evs := c.Events
+	if len(j.held) > 0 {
+		j.merged = mergeByStart(j.merged[:0], j.held, evs)
+		evs = j.merged
+	}
+	cut := len(evs)
+	for cut > 0 && !evs[cut-1].Start.Before(next) {
+		cut--
+	}
+	for i := range evs[:cut] {
+		j.event(&evs[i])
+		if len(j.buf) >= 32<<10 {
+			if err := j.flush(); err != nil {
+				return err
+			}
+		}
+	}
+	j.held = append(j.held[:0], evs[cut:]...)
+	for i := range c.Notes {
+		obj, err := json.MarshalIndent(toJSONNote(c.Notes[i]), "    ", "  ")
+		if err != nil {
+			return err
+		}
+		if len(j.notes) > 0 {
+			j.notes = append(j.notes, ',')
+		}
+		j.notes = append(j.notes, "\n    "...)
+		j.notes = append(j.notes, obj...)
+	}
+	return j.flush()
+}
+
+// mergeByStart appends the merge of a and b (each sorted by Start; a first
+// on ties) to dst.
+func mergeByStart(dst, a, b []feed.Event) []feed.Event {
+	for len(a) > 0 && len(b) > 0 {
+		if b[0].Start.Before(a[0].Start) {
+			dst, b = append(dst, b[0]), b[1:]
+		} else {
+			dst, a = append(dst, a[0]), a[1:]
+		}
+	}
+	return append(append(dst, a...), b...)
+}
+
+func (j *jsonSink) flush() error {
+	_, err := j.w.Write(j.buf)
+	j.buf = j.buf[:0]
+	return err
+}
+
+// event appends one event object: the Sun's daily kinds (nearly all of a
+// long listing) written directly, any other kind through toJSONEvent and
+// encoding/json.
+func (j *jsonSink) event(e *feed.Event) {
+	b := j.buf
+	if j.events > 0 {
+		b = append(b, ',')
+	}
+	j.events++
+	if !plainJSONKinds[e.Kind.Name] {
+		obj, err := json.MarshalIndent(toJSONEvent(*e), "    ", "  ")
+		if err != nil { // plain strings and finite numbers: cannot fail
+			panic(err)
+		}
+		b = append(b, "\n    "...)
+		j.buf = append(b, obj...)
+		return
+	}
+	b = append(b, "\n    {\n      \"kind\": "...)
+	name, ok := j.names[e.Kind]
+	if !ok {
+		if j.names == nil {
+			j.names = map[config.Kind]string{}
+		}
+		name = string(appendJSONString(nil, e.Kind.String()))
+		j.names[e.Kind] = name
+	}
+	b = append(b, name...)
+	b = append(b, ",\n      \"start\": \""...)
+	b = appendUTCMillis(b, feed.ToMillisecond(e.Start))
+	b = append(b, '"')
+	if !e.End.IsZero() {
+		b = append(b, ",\n      \"end\": \""...)
+		b = appendUTCMillis(b, feed.ToMillisecond(e.End))
+		b = append(b, '"')
+	}
+	if d := direction(*e); d != "" {
+		b = append(b, ",\n      \"direction\": \""...)
+		b = append(b, d...)
+		b = append(b, '"')
+	}
+	b = append(b, ",\n      \"date\": \""...)
+	y, m, d := e.Date.Date()
+	b = appendDate(b, y, int(m), d)
+	b = append(b, '"')
+	if e.Part != "" {
+		b = append(b, ",\n      \"part\": "...)
+		b = appendJSONString(b, e.Part)
+	}
+	switch e.Kind.Name {
+	case "solar-noon":
+		b = append(b, ",\n      \"altitude_deg\": "...)
+		b = appendJSONFloat(b, math.Round(e.Altitude*1e4)/1e4)
+	case "sunrise", "sunset":
+		b = append(b, ",\n      \"day_length_s\": "...)
+		b = appendJSONFloat(b, math.Round(e.DayLength.Seconds()*1000)/1000)
+		b = append(b, ",\n      \"azimuth_deg\": "...)
+		b = appendJSONFloat(b, math.Round(e.Azimuth*100)/100)
+	}
+	j.buf = append(b, "\n    }"...)
+}
+
+// plainJSONKinds are the kinds whose JSON event.event writes itself, with
+// the fields toJSONEvent gives them: kind, start, end, direction, date,
+// part, and altitude_deg (solar noon) or day_length_s and azimuth_deg
+// (sunrise, sunset).
+var plainJSONKinds = map[string]bool{
+	"sunrise": true, "sunset": true, "solar-noon": true, "civil-dawn": true, "civil-dusk": true,
+	"nautical-dawn": true, "nautical-dusk": true, "astronomical-dawn": true, "astronomical-dusk": true,
+	"sun-altitude": true, "golden-hour": true, "blue-hour": true,
+}
+
+func (j *jsonSink) close() error {
+	if j.buf == nil {
+		j.buf = append(j.buf, "{\n  \"events\": ["...)
+	}
+	for i := range j.held {
+		j.event(&j.held[i])
+	}
+	if j.events > 0 {
+		j.buf = append(j.buf, "\n  "...)
+	}
+	j.buf = append(j.buf, "],\n  \"notes\": ["...)
+	if len(j.notes) > 0 {
+		j.buf = append(j.buf, j.notes...)
+		j.buf = append(j.buf, "\n  "...)
+	}
+	j.buf = append(j.buf, "],\n  \"site\": "...)
+	s := j.site
+	site, err := json.MarshalIndent(jsonSite{Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation,
+		Horizon: s.Horizon, TimeZone: s.TimeZone.String(), From: j.from.Format(time.DateOnly), To: j.to.Format(time.DateOnly)}, "  ", "  ")
+	if err != nil {
+		return err
+	}
+	j.buf = append(j.buf, site...)
+	j.buf = append(j.buf, "\n}\n"...)
+	if err := j.flush(); err != nil {
+		return err
+	}
+	return j.w.Flush()
+}
+
+// appendUTCMillis appends t in UTC as jsonTime writes it
+// (2027-01-01T06:42:12.854Z: further digits cut, so pass t rounded to the
+// millisecond as utcStamp does), for years 0–9999.
+func appendUTCMillis(b []byte, t time.Time) []byte {
+	t = t.UTC()
+	y, mo, d := t.Date()
+	h, mi, s := t.Clock()
+	b = appendDate(b, y, int(mo), d)
+	ms := t.Nanosecond() / 1e6
+	return append(b, 'T', byte('0'+h/10), byte('0'+h%10), ':', byte('0'+mi/10), byte('0'+mi%10), ':',
+		byte('0'+s/10), byte('0'+s%10), '.', byte('0'+ms/100), byte('0'+ms/10%10), byte('0'+ms%10), 'Z')
+}
+
+// appendDate appends YYYY-MM-DD.
+func appendDate(b []byte, y, m, d int) []byte {
+	return append(b, byte('0'+y/1000), byte('0'+y/100%10), byte('0'+y/10%10), byte('0'+y%10), '-',
+		byte('0'+m/10), byte('0'+m%10), '-', byte('0'+d/10), byte('0'+d%10))
+}
+
+// appendJSONString appends s quoted as encoding/json writes it: plain
+// printable ASCII directly, anything else through the encoder.
+func appendJSONString(b []byte, s string) []byte {
+	for i := 0; i < len(s); i++ {
+		if c := s[i]; c < 0x20 || c >= utf8.RuneSelf || c == '"' || c == '\\' || c == '<' || c == '>' || c == '&' {
+			q, _ := json.Marshal(s)
+			return append(b, q...)
+		}
+	}
+	b = append(b, '"')
+	b = append(b, s...)
+	return append(b, '"')
+}
+
+// appendJSONFloat appends f as encoding/json writes a float64: the shortest
+// decimal that reads back exactly, in exponent form below 1e-6 and from
+// 1e21 on.
+func appendJSONFloat(b []byte, f float64) []byte {
+	if math.IsInf(f, 0) || math.IsNaN(f) {
+		return append(b, "null"...)
+	}
+	abs := math.Abs(f)
+	if abs != 0 && (abs < 1e-6 || abs >= 1e21) {
+		n := len(b)
+		b = strconv.AppendFloat(b, f, 'e', -1, 64)
+		// clean up e-09 to e-9, as encoding/json does
+		if m := len(b) - n; m >= 4 && b[len(b)-4] == 'e' && b[len(b)-3] == '-' && b[len(b)-2] == '0' {
+			b[len(b)-2] = b[len(b)-1]
+			b = b[:len(b)-1]
+		}
+		return b
+	}
+	return strconv.AppendFloat(b, f, 'f', -1, 64)
+}
+
+// csvSink writes one row per event and per note, by local date (notes
+// first on their date), chunk by chunk.
+type csvSink struct {
+	w   *bufio.Writer
+	cw  *csv.Writer
+	loc *time.Location
+}
+
+func newCSVSink(w *bufio.Writer, s *config.Site) *csvSink {
+	c := &csvSink{w: w, cw: csv.NewWriter(w), loc: s.TimeZone.Location}
+	_ = c.cw.Write(eventsCSVHeader)
+	return c
+}
+
+func (c *csvSink) chunk(ch feed.Chunk) error {
+	if err := writeEventsCSVRows(c.cw, c.loc, ch.Events, ch.Notes); err != nil {
+		return err
+	}
+	c.cw.Flush()
+	return c.cw.Error()
+}
+
+func (c *csvSink) close() error {
+	c.cw.Flush()
+	if err := c.cw.Error(); err != nil {
+		return err
+	}
+	return c.w.Flush()
+}
+
+// tableSink writes the readable table: a heading, then DATE, TIME, KIND
+// and DETAILS columns separated by two spaces at least. A chunk's rows are
+// aligned together; the column widths only grow from one chunk to the next
+// (a wider zone abbreviation or kind name later in a long span shifts the
+// rows after it).
+type tableSink struct {
+	w      *bufio.Writer
+	loc    *time.Location
+	widths [3]int
+	header bool
+	rows   [][4]string
+}
+
+func newTableSink(w *bufio.Writer, s *config.Site) *tableSink {
+	loc := s.TimeZone.Location
+	ns, ew := 'N', 'E'
+	lat, lon := s.Latitude, s.Longitude
+	if lat < 0 {
+		ns, lat = 'S', -lat
+	}
+	if lon < 0 {
+		ew, lon = 'W', -lon
+	}
+	fmt.Fprintf(w, "%s: %.4f° %c, %.4f° %c, %g m, %s\n\n", s.Name, lat, ns, lon, ew, s.Elevation, loc)
+	return &tableSink{w: w, loc: loc}
+}
+
+func (t *tableSink) chunk(ch feed.Chunk) error {
+	t.rows = t.rows[:0]
+	if !t.header {
+		t.rows = append(t.rows, [4]string{"DATE", "TIME", "KIND", "DETAILS"})
+		t.header = true
+	}
+	for _, r := range mergeRows(ch.Events, ch.Notes) {
+		if r.note != nil {
+			t.rows = append(t.rows, [4]string{r.note.Date.Format("2006-01-02 Mon"), "-", r.note.Kind.String(), noteText(r.note)})
+			continue
+		}
+		e := r.event
+		at := "all day"
+		if !e.DateOnly() {
+			at = feed.ToSecond(e.Start).In(t.loc).Format("15:04:05 MST")
+		}
+		t.rows = append(t.rows, [4]string{e.Date.Format("2006-01-02 Mon"), at, e.Kind.String(), details(e, t.loc)})
+	}
+	for _, r := range t.rows {
+		for i := range t.widths {
+			t.widths[i] = max(t.widths[i], utf8.RuneCountInString(r[i]))
+		}
+	}
+	for _, r := range t.rows {
+		for i := range t.widths {
+			t.w.WriteString(r[i])
+			for range t.widths[i] - utf8.RuneCountInString(r[i]) + 2 {
+				t.w.WriteByte(' ')
+			}
+		}
+		t.w.WriteString(r[3])
+		if err := t.w.WriteByte('\n'); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+func (t *tableSink) close() error {
+	if !t.header { // no chunk at all: the heading alone
+		if err := t.chunk(feed.Chunk{}); err != nil {
+			return err
+		}
+	}
+	return t.w.Flush()
+}
+
+// writeEventsOnce writes events and notes already computed for the local
+// dates from..to in one format, through the same writer as the streamed
+// command.
+func writeEventsOnce(format string, w io.Writer, s *config.Site, from, to time.Time, events []feed.Event, notes []feed.Note) error {
+	out := newEventSink(format, w, s, from, to)
+	if out == nil {
+		return fmt.Errorf("events: unknown format %q", format)
+	}
+	if err := out.chunk(feed.Chunk{First: from, Last: to, Events: events, Notes: notes}); err != nil {
+		return err
+	}
+	return out.close()
+}
+
+// writeEventsTable, writeEventsCSV and writeEventsJSON are writeEventsOnce
+// for one format; the events' dates bound the JSON's site range.
+func writeEventsTable(w io.Writer, s *config.Site, events []feed.Event, notes []feed.Note) error {
+	from, to := eventDates(events, notes)
+	return writeEventsOnce("table", w, s, from, to, events, notes)
+}
+
+func writeEventsCSV(w io.Writer, s *config.Site, events []feed.Event, notes []feed.Note) error {
+	from, to := eventDates(events, notes)
+	return writeEventsOnce("csv", w, s, from, to, events, notes)
+}
+
+func writeEventsJSON(w io.Writer, s *config.Site, from, to time.Time, events []feed.Event, notes []feed.Note) error {
+	return writeEventsOnce("json", w, s, from, to, events, notes)
+}
+
+// eventDates returns the first and last local dates of events and notes.
+func eventDates(events []feed.Event, notes []feed.Note) (first, last time.Time) {
+	see := func(d time.Time) {
+		if first.IsZero() || d.Before(first) {
+			first = d
+		}
+		if d.After(last) {
+			last = d
+		}
+	}
+	for i := range events {
+		see(events[i].Date)
+	}
+	for i := range notes {
+		see(notes[i].Date)
+	}
+	return first, last
+}

@@ -1,0 +1,152 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"encoding/json"
+	"io"
+	"runtime"
+	"runtime/metrics"
+	"slices"
+	"strings"
+	"testing"
+	"time"
+
+	"heliocal/config"
+	"heliocal/feed"
+)
+
+// The streamed JSON is byte for byte what encoding/json's indenting encoder
+// writes for the same document, over several chunks, with notes (a polar
+// site), spans named by their evening that start after midnight (dark
+// windows) and far-future uncertainties.
+func TestEventsJSONStreamedAsEncoder(t *testing.T) {
+	args := []string{"events", "--lat", "69.65", "--lon", "18.96", "--tz", "Europe/Oslo", "--from", "2098-06-01",
+		"--to", "2099-09-30", "--kinds", "sunrise,sunset,civil-dusk,golden-hour,dark-window,moon-phases,seasons,perihelion,photoperiod:20h,lighting:16h",
+		"--max-illumination", "0.25", "--format", "json"}
+	code, out, errOut := runCLI(t, args...)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	site := &config.Site{ID: "place", Name: "69.6500, 18.9600", Latitude: 69.65, Longitude: 18.96}
+	if err := site.TimeZone.UnmarshalText([]byte("Europe/Oslo")); err != nil {
+		t.Fatal(err)
+	}
+	from, to := time.Date(2098, 6, 1, 0, 0, 0, 0, time.UTC), time.Date(2099, 9, 30, 0, 0, 0, 0, time.UTC)
+	kinds, err := parseKinds("sunrise,sunset,civil-dusk,golden-hour,dark-window,moon-phases,seasons,perihelion,photoperiod:20h,lighting:16h")
+	if err != nil {
+		t.Fatal(err)
+	}
+	specs := make([]config.KindSpec, len(kinds))
+	for i, k := range kinds {
+		specs[i] = config.KindSpec{Kind: k, MaxIllumination: 0.25}
+	}
+	sky, err := feed.NewSky(from, to)
+	if err != nil {
+		t.Fatal(err)
+	}
+	doc := struct {
+		Events []jsonEvent `json:"events"`
+		Notes  []jsonNote  `json:"notes"`
+		Site   jsonSite    `json:"site"`
+	}{Events: []jsonEvent{}, Notes: []jsonNote{}}
+	var events []feed.Event
+	chunks := 0
+	err = sky.EventChunks(context.Background(), feed.PlaceOf(site), specs, from, to, func(c feed.Chunk) error {
+		chunks++
+		events = append(events, c.Events...)
+		for _, n := range c.Notes {
+			doc.Notes = append(doc.Notes, toJSONNote(n))
+		}
+		return nil
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	slices.SortStableFunc(events, func(a, b feed.Event) int { return a.Start.Compare(b.Start) })
+	for _, e := range events {
+		doc.Events = append(doc.Events, toJSONEvent(e))
+	}
+	doc.Site = jsonSite{Name: site.Name, Latitude: 69.65, Longitude: 18.96, TimeZone: "Europe/Oslo", From: "2098-06-01", To: "2099-09-30"}
+	var want bytes.Buffer
+	enc := json.NewEncoder(&want)
+	enc.SetIndent("", "  ")
+	if err := enc.Encode(doc); err != nil {
+		t.Fatal(err)
+	}
+	if chunks < 3 || len(doc.Notes) == 0 || !strings.Contains(out, `"uncertainty_s"`) || !strings.Contains(out, `"dark-window"`) || !strings.Contains(out, `"lamp_s"`) {
+		t.Fatalf("the case does not exercise the writer: %d chunks, %d notes", chunks, len(doc.Notes))
+	}
+	if out != want.String() {
+		a, b := strings.Split(out, "\n"), strings.Split(want.String(), "\n")
+		for i := range min(len(a), len(b)) {
+			if a[i] != b[i] {
+				t.Fatalf("line %d: streamed %q, encoding/json %q", i+1, a[i], b[i])
+			}
+		}
+		t.Fatalf("streamed %d lines, encoding/json %d", len(a), len(b))
+	}
+}
+
+// An empty result is still a complete document, in each format.
+func TestEventsEmptyStreamed(t *testing.T) {
+	for _, f := range []string{"json", "csv", "table"} {
+		code, out, errOut := runCLI(t, "events", "--lat", "10", "--lon", "0", "--from", "2027-01-05", "--to", "2027-01-05",
+			"--kinds", "perihelion", "--format", f)
+		if code != 0 {
+			t.Fatalf("%s: exit %d: %s", f, code, errOut)
+		}
+		switch f {
+		case "json":
+			var doc map[string]any
+			if err := json.Unmarshal([]byte(out), &doc); err != nil || !strings.Contains(out, `"events": [],`) {
+				t.Errorf("json: %v\n%s", err, out)
+			}
+		case "csv":
+			if out != strings.Join(eventsCSVHeader, ",")+"\n" {
+				t.Errorf("csv: %q", out)
+			}
+		case "table":
+			if !strings.HasSuffix(out, "\n\nDATE  TIME  KIND  DETAILS\n") {
+				t.Errorf("table: %q", out)
+			}
+		}
+	}
+}
+
+// heapPeakWriter discards what is written and samples the bytes of live
+// and not yet collected heap objects at each write (every 64 KB of output).
+type heapPeakWriter struct {
+	sample []metrics.Sample
+	peak   uint64
+}
+
+func (h *heapPeakWriter) Write(p []byte) (int, error) {
+	metrics.Read(h.sample)
+	h.peak = max(h.peak, h.sample[0].Value.Uint64())
+	return len(p), nil
+}
+
+// Memory does not grow with the span: the heap seen while writing 50 years
+// of events is not more than that of 5 years plus a few megabytes (before
+// streaming it was about 1 KB per event, here 70 MB for 50 years).
+func TestEventsMemoryFlat(t *testing.T) {
+	if testing.Short() {
+		t.Skip("computes 55 years of events")
+	}
+	peak := func(to string) uint64 {
+		h := &heapPeakWriter{sample: []metrics.Sample{{Name: "/memory/classes/heap/objects:bytes"}}}
+		runtime.GC()
+		code := run(context.Background(), []string{"events", "--lat", "47.3", "--lon", "8.5", "--tz", "Europe/Zurich", "--from", "2020-01-01", "--to", to,
+			"--kinds", "sunrise,sunset,solar-noon,civil-dawn,civil-dusk", "--format", "json"}, h, io.Discard, noEnv)
+		if code != 0 {
+			t.Fatalf("exit %d", code)
+		}
+		return h.peak
+	}
+	short, long := peak("2024-12-31"), peak("2069-12-31")
+	t.Logf("heap peak while writing: 5 years %.1f MB, 50 years %.1f MB", float64(short)/1e6, float64(long)/1e6)
+	if long > 2*short+8<<20 {
+		t.Errorf("50 years take %.1f MB of heap, 5 years %.1f MB: memory grows with the span", float64(long)/1e6, float64(short)/1e6)
+	}
+}

@@ -1,0 +1,154 @@
+#!/usr/bin/env python3
+"""Events per second of `heliocal events` against PyEphem, whole process
+against whole process, on the same machine in one run.
+
+    apt-get install -y python3-ephem
+    go build -o /tmp/heliocal ./cmd/heliocal
+    python3 tools/pyephem-compare/compare.py --heliocal /tmp/heliocal [--runs 3] [--years 20]
+
+Both sides compute the same kinds for the same place and dates with the same
+method (for each threshold of the Sun's centre, every rising and setting
+crossing, found date after date; solar noon as the upper transit) and write
+the events as JSON to stdout. heliocal runs
+
+    heliocal events --lat 47.3 --lon 8.5 --elev 400 --tz UTC --from 2020-01-01
+      --to 2039-12-31 --kinds sunrise,sunset,solar-noon,civil-dawn,civil-dusk,
+      nautical-dawn,nautical-dusk,astronomical-dawn,astronomical-dusk,
+      sun-altitude:6,sun-altitude:-4 --format json
+
+and PyEphem (libastro) runs this script's "pyephem" mode: Observer with
+pressure 0 (the thresholds are geometric altitudes of the centre, as in
+heliocal), use_center, the rise/set threshold -0.8333 deg lowered by the dip
+of the horizon for 400 m (1.76' sqrt(h), as heliocal does). The runs
+alternate (heliocal, PyEphem, heliocal, ...) so that both see the same load;
+each is timed by its wall clock and by its CPU time (user + system, from
+the kernel's child accounting). The script prints each run, the median
+events per second of each side and their ratio, and the load average.
+"""
+
+import argparse
+import json
+import math
+import os
+import resource
+import statistics
+import subprocess
+import sys
+import time
+
+LAT, LON, ELEV = 47.3, 8.5, 400.0
+KINDS = ("sunrise,sunset,solar-noon,civil-dawn,civil-dusk,nautical-dawn,nautical-dusk,"
+         "astronomical-dawn,astronomical-dusk,sun-altitude:6,sun-altitude:-4")
+
+
+def pyephem_events(first_year, last_year):
+    """The PyEphem side: every event of KINDS over the years, as JSON."""
+    import ephem
+
+    rise_set = -0.8333 - 1.76 / 60 * math.sqrt(ELEV)
+    # kind name, threshold (deg), which crossing(s)
+    kinds = [
+        ("sunrise", rise_set, "R"), ("sunset", rise_set, "S"),
+        ("civil-dawn", -6.0, "R"), ("civil-dusk", -6.0, "S"),
+        ("nautical-dawn", -12.0, "R"), ("nautical-dusk", -12.0, "S"),
+        ("astronomical-dawn", -18.0, "R"), ("astronomical-dusk", -18.0, "S"),
+        ("sun-altitude:6", 6.0, "RS"), ("sun-altitude:-4", -4.0, "RS"),
+    ]
+    start = ephem.Date("%d/1/1" % first_year)
+    end = ephem.Date("%d/1/1" % (last_year + 1))
+    sun = ephem.Sun()
+    events = []
+
+    def observer(horizon):
+        o = ephem.Observer()
+        o.lat, o.lon = str(LAT), str(LON)
+        o.elevation = ELEV
+        o.pressure = 0
+        o.horizon = str(horizon)
+        return o
+
+    for name, alt, which in kinds:
+        obs = observer(alt)
+        for d, fn in (("rising", obs.next_rising), ("setting", obs.next_setting)):
+            if d[0].upper() not in which:
+                continue
+            t = start
+            while True:
+                obs.date = t
+                try:
+                    r = fn(sun, use_center=True)
+                except (ephem.AlwaysUpError, ephem.NeverUpError):
+                    t = ephem.Date(t + 1)
+                    if t >= end:
+                        break
+                    continue
+                if r >= end:
+                    break
+                events.append((r, name, d))
+                t = ephem.Date(r + ephem.minute)
+    obs = observer(0)
+    t = start
+    while True:
+        obs.date = t
+        r = obs.next_transit(sun)
+        if r >= end:
+            break
+        events.append((r, "solar-noon", ""))
+        t = ephem.Date(r + ephem.minute)
+    events.sort(key=lambda e: e[0])
+    out = []
+    for r, name, d in events:
+        dt = ephem.Date(r).datetime()
+        e = {"kind": name, "start": dt.strftime("%Y-%m-%dT%H:%M:%S.") + "%03dZ" % (dt.microsecond // 1000),
+             "date": dt.strftime("%Y-%m-%d")}
+        if d:
+            e["direction"] = d
+        out.append(e)
+    json.dump({"events": out}, sys.stdout, indent=2)
+    sys.stdout.write("\n")
+
+
+def timed(cmd):
+    """Runs cmd with stdout to a pipe; returns (wall s, cpu s, events)."""
+    before = resource.getrusage(resource.RUSAGE_CHILDREN)
+    t0 = time.perf_counter()
+    p = subprocess.run(cmd, stdout=subprocess.PIPE, check=True)
+    wall = time.perf_counter() - t0
+    after = resource.getrusage(resource.RUSAGE_CHILDREN)
+    cpu = (after.ru_utime - before.ru_utime) + (after.ru_stime - before.ru_stime)
+    return wall, cpu, p.stdout.count(b'"kind"')
+
+
+def main():
+    ap = argparse.ArgumentParser(description=__doc__.split("\n\n")[0])
+    ap.add_argument("--heliocal", default="heliocal", help="path of the heliocal binary")
+    ap.add_argument("--runs", type=int, default=3, help="runs of each side")
+    ap.add_argument("--years", type=int, default=20, help="years from 2020")
+    ap.add_argument("mode", nargs="?", default="compare", choices=["compare", "pyephem"])
+    a = ap.parse_args()
+    first, last = 2020, 2020 + a.years - 1
+    if a.mode == "pyephem":
+        pyephem_events(first, last)
+        return
+    hc = [a.heliocal, "events", "--lat", str(LAT), "--lon", str(LON), "--elev", "%g" % ELEV, "--tz", "UTC",
+          "--from", "%d-01-01" % first, "--to", "%d-12-31" % last, "--kinds", KINDS, "--format", "json"]
+    py = [sys.executable, os.path.abspath(__file__), "--years", str(a.years), "pyephem"]
+    rows = {"heliocal": [], "pyephem": []}
+    print("load average before: %.2f %.2f %.2f" % os.getloadavg())
+    for i in range(a.runs):
+        for name, cmd in (("heliocal", hc), ("pyephem", py)):
+            wall, cpu, n = timed(cmd)
+            rows[name].append((wall, cpu, n))
+            print("run %d %-8s %7d events  wall %7.3f s (%9.0f events/s)  cpu %7.3f s (%9.0f events/s)"
+                  % (i + 1, name, n, wall, n / wall, cpu, n / cpu), flush=True)
+    print("load average after: %.2f %.2f %.2f" % os.getloadavg())
+    med = {}
+    for name, r in rows.items():
+        med[name] = (statistics.median(n / w for w, c, n in r), statistics.median(n / c for w, c, n in r))
+        print("median %-8s %9.0f events/s (wall)  %9.0f events/s (cpu)" % (name, med[name][0], med[name][1]))
+    print("ratio heliocal / PyEphem: %.0fx (wall), %.0fx (cpu)"
+          % (med["heliocal"][0] / med["pyephem"][0], med["heliocal"][1] / med["pyephem"][1]))
+
+
+if __name__ == "__main__":
+    main()

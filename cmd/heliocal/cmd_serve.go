@@ -3,7 +3,9 @@ package main
 import (
 	"context"
 	"errors"
+	"fmt"
 	"log/slog"
+	"net"
 	"os"
 	"os/signal"
 	"sync/atomic"
@@ -173,5 +175,20 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 			}
 		}
 	}()
-	return srv.ListenAndRun(ctx, listen)
+	// Listen here, so that a failure names where the address came from.
+	ln, err := net.Listen("tcp", listen)
+	if err != nil {
+		from := "service.listen"
+		if o.listen != "" {
+			from = "--listen"
+		} else if v, ok := g.getenv("HELIOCAL_LISTEN"); ok && v != "" {
+			from = "HELIOCAL_LISTEN"
+		}
+		cause := errors.Unwrap(err) // drop the "listen tcp <addr>:" the address is already named
+		if cause == nil {
+			cause = err
+		}
+		return fmt.Errorf("%s %s: cannot listen: %w", from, listen, cause)
+	}
+	return srv.Run(ctx, ln)
 }

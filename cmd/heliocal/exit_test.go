@@ -1,6 +1,7 @@
 package main
 
 import (
+	"net"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -52,6 +53,19 @@ func TestExitCodesEndToEnd(t *testing.T) {
 	}
 	if entries, _ := os.ReadDir(out); len(entries) != 0 {
 		t.Errorf("a refused publish wrote %d files", len(entries))
+	}
+	// An address that is well formed but taken is a run-time failure (exit 1),
+	// still named by its flag.
+	busy, err := net.Listen("tcp", "127.0.0.1:0")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer busy.Close()
+	cmd := exec.Command(bin, "serve", "--listen", busy.Addr().String())
+	cmd.Dir = t.TempDir()
+	msg, _ := cmd.CombinedOutput()
+	if code := cmd.ProcessState.ExitCode(); code != exitFailure || !strings.Contains(string(msg), "--listen "+busy.Addr().String()+": cannot listen") {
+		t.Errorf("serve --listen on a taken port: exit %d, want 1 naming --listen; output:\n%s", code, msg)
 	}
 	// each shell still gets its script
 	for _, sh := range completionShells {

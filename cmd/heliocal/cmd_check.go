@@ -131,6 +131,19 @@ func runCheck(ctx context.Context, g *globals, now time.Time, format string) err
 	return nil
 }
 
+// zoneNotes says, for each site without a timezone, which zone was taken
+// from its coordinates.
+func zoneNotes(cfg *config.Config, now time.Time) []string {
+	var notes []string
+	for _, s := range cfg.Sites {
+		if s.ZoneInferred {
+			notes = append(notes, fmt.Sprintf("note: site %s has no timezone: using %s, the zone in force at %.4f, %.4f; add timezone: to choose another",
+				s.ID, config.DescribeZone(s.TimeZone.Location, now), s.Latitude, s.Longitude))
+		}
+	}
+	return notes
+}
+
 // checkConfig builds every feed of a valid configuration once and reports
 // the sites and feeds, the warnings for oversize feeds, and notes for
 // sites whose zone comes from their coordinates.
@@ -144,11 +157,8 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 	for _, s := range cfg.Sites {
 		r.Sites = append(r.Sites, checkSite{ID: s.ID, Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude,
 			Elevation: s.Elevation, TimeZone: s.TimeZone.Name(), TimeZoneInferred: s.ZoneInferred})
-		if s.ZoneInferred {
-			notes = append(notes, fmt.Sprintf("note: site %s has no timezone: using %s, the zone in force at %.4f, %.4f; add timezone: to choose another",
-				s.ID, config.DescribeZone(s.TimeZone.Location, now), s.Latitude, s.Longitude))
-		}
 	}
+	notes = zoneNotes(cfg, now)
 	limit := cfg.Service.MaxFeedBytes
 	for i, s := range srcs {
 		if err := ctx.Err(); err != nil {

@@ -108,6 +108,9 @@ func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Tim
 		}
 	}
 	if !o.quiet {
+		for _, n := range zoneNotes(cfg, now) {
+			fmt.Fprintln(g.stderr, "heliocal: "+n)
+		}
 		fmt.Fprintf(g.stderr, "heliocal: publishing %d feeds from %s to %s\n", len(srcs), src, out)
 		opts.Progress = publish.NewProgress(g.stderr)
 	}

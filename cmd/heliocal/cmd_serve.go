@@ -156,6 +156,11 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 		return inputError{err}
 	}
 	log.Info("configuration loaded", "source", src.String(), "sites", len(cfg.Sites), "feeds", len(cfg.Feeds))
+	for _, s := range cfg.Sites {
+		if s.ZoneInferred {
+			log.Info("site without timezone: using the zone in force at its coordinates", "site", s.ID, "zone", s.TimeZone.Name())
+		}
+	}
 
 	// SIGHUP reloads the configuration; the signal stays here so the serve
 	// package can be run by tests without signals.

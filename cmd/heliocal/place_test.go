@@ -69,3 +69,15 @@ func TestCheckInferredZone(t *testing.T) {
 		}
 	}
 }
+
+// publish says which zone it took for a site without timezone.
+func TestPublishNamesInferredZone(t *testing.T) {
+	cfg := filepath.Join("..", "..", "testdata", "config", "missing-timezone.yaml")
+	code, _, errOut := runCLI(t, "publish", "--config", cfg, "--out", t.TempDir())
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	if !strings.Contains(errOut, "site cane-field has no timezone: using America/Havana") {
+		t.Errorf("publish does not name the zone it took:\n%s", errOut)
+	}
+}

@@ -21,6 +21,10 @@ type Service struct {
 	Refresh      string `mapstructure:"refresh"`        // cron expression, default "15 3 * * *"
 	RefreshZone  Zone   `mapstructure:"refresh_zone"`   // zone of the cron expression, default: the server's
 	MaxFeedBytes int    `mapstructure:"max_feed_bytes"` // warn above this size, default 1000000
+	// TrustedProxies are the reverse proxies (IP addresses or CIDR
+	// prefixes) whose X-Forwarded-Host and X-Forwarded-Proto headers serve
+	// believes when base_url is unset; empty: those headers are ignored.
+	TrustedProxies []string `mapstructure:"trusted_proxies"`
 }
 
 // Site is a place on Earth.

@@ -247,6 +247,11 @@ func (s *Service) validate(ps *problems) {
 			ps.add("service.refresh", s.Refresh, msg, `e.g. "15 3 * * *" for 03:15 every night, or "@every 6h"`)
 		}
 	}
+	for i, v := range s.TrustedProxies {
+		if _, err := parseProxy(v); err != nil {
+			ps.add(fmt.Sprintf("service.trusted_proxies[%d]", i), v, "not an IP address or CIDR prefix", `e.g. "127.0.0.1" or "10.0.0.0/8"`)
+		}
+	}
 	if s.MaxFeedBytes < 0 {
 		ps.add("service.max_feed_bytes", strconv.Itoa(s.MaxFeedBytes), "must not be negative", "leave it out for 1000000")
 	}

@@ -230,9 +230,13 @@ func adhocFeedFrom(current func() adhocSettings) serve.AdhocFunc {
 			Latitude:  q.Latitude,
 			Longitude: q.Longitude,
 			Elevation: q.Elevation,
+			Horizon:   q.Horizon,
 			TimeZone:  config.Zone{Location: q.Location},
 		}
-		f := &config.Feed{ID: q.ID(), Title: "Sky events at " + site.Name, Site: site.ID, UTC: q.UTC,
+		if q.Name != "" {
+			site.Name = q.Name
+		}
+		f := &config.Feed{ID: q.ID(), Title: "Sky events at " + site.Name, Site: site.ID, UTC: q.UTC, Alarm: config.Duration(q.Alarm),
 			Description: "Sun and Moon events computed by heliocal for " + site.Name + "."}
 		for _, name := range q.Kinds {
 			k, err := config.ParseKind(name)

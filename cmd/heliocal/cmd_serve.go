@@ -144,6 +144,8 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 		Logger:            log,
 		AccessLogger:      access,
 		Build:             serveBuild(cfg, baseOf(cfg)),
+		BaseURL:           baseOf(cfg),
+		TrustedProxies:    cfg.Service.TrustedProxies,
 		Version:           v.Version,
 		Revision:          v.Revision,
 		Adhoc:             adhocFeedFrom(func() adhocSettings { return *adhoc.Load() }),
@@ -176,6 +178,9 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 				if next := reloadServe(ctx, g, log, srv, cfg, baseOf); next != nil {
 					cfg = next
 					setAdhoc(cfg)
+					if err := srv.SetPublic(baseOf(cfg), cfg.Service.TrustedProxies); err != nil {
+						log.Error("the new base_url or trusted_proxies could not be applied", "err", err)
+					}
 				}
 			}
 		}

@@ -12,6 +12,8 @@ import (
 	"sync"
 	"time"
 	"unicode/utf8"
+
+	"heliocal/config"
 )
 
 // The ad-hoc route and its query parameters. Every parameter is checked
@@ -20,17 +22,22 @@ import (
 const (
 	AdhocPath = "/at.ics"
 
-	ParamLatitude  = "lat"   // degrees, −90..90, north positive (required)
-	ParamLongitude = "lon"   // degrees, −180..180, east positive (required)
-	ParamZone      = "tz"    // IANA time zone name, e.g. Europe/Vienna (required)
-	ParamKinds     = "kinds" // comma-separated event kinds (default: Options.AdhocDefaultKinds)
-	ParamDays      = "days"  // number of days, 1..Options.AdhocMaxDays (default Options.AdhocDefaultDays)
-	ParamStart     = "start" // first local date, YYYY-MM-DD (default: today in tz)
-	ParamElevation = "elev"  // metres above sea level, −500..9000 (default 0)
-	ParamUTC       = "utc"   // true/false: write times in UTC instead of tz (default false)
+	ParamLatitude  = "lat"      // degrees, −90..90, north positive (required)
+	ParamLongitude = "lon"      // degrees, −180..180, east positive (required)
+	ParamZone      = "tz"       // IANA time zone name, e.g. Europe/Vienna (default: the zone at lat, lon)
+	ParamKinds     = "kinds"    // comma-separated event kinds (default: Options.AdhocDefaultKinds)
+	ParamDays      = "days"     // number of days, 1..Options.AdhocMaxDays (default Options.AdhocDefaultDays)
+	ParamStart     = "start"    // first local date, YYYY-MM-DD (default: today in tz)
+	ParamElevation = "elev"     // metres above sea level, −500..9000 (default 0)
+	ParamUTC       = "utc"      // true/false: write times in UTC instead of tz (default false)
+	ParamName      = "name"     // the place's name in titles, 1..80 characters (default: the coordinates)
+	ParamHorizon   = "horizon"  // altitude of the skyline in degrees, -5..45 (default 0)
+	ParamAlarm     = "alarm"    // reminder before each timed event, e.g. 15m, 0..168h (default none)
+	ParamLighting  = "lighting" // lamp target day length, e.g. 16h: adds the kind lighting:16h
 )
 
-var adhocParams = []string{ParamLatitude, ParamLongitude, ParamZone, ParamKinds, ParamDays, ParamStart, ParamElevation, ParamUTC}
+var adhocParams = []string{ParamLatitude, ParamLongitude, ParamZone, ParamKinds, ParamDays, ParamStart, ParamElevation, ParamUTC,
+	ParamName, ParamHorizon, ParamAlarm, ParamLighting}
 
 // Bounds of the ad-hoc parameters.
 const (
@@ -58,6 +65,13 @@ type AdhocQuery struct {
 	Start time.Time
 	Days  int  // length of the window in days
 	UTC   bool // write times in UTC instead of Location
+
+	Name    string        // the place's name; empty: the coordinates
+	Horizon float64       // skyline altitude in degrees, rounded to 0.1°
+	Alarm   time.Duration // reminder before each timed event; 0 = none
+	// ZoneFound is true when tz was not given and Location is the zone at
+	// the coordinates (config.ZoneAt).
+	ZoneFound bool
 }
 
 // String returns the canonical query string, the cache key.
@@ -75,6 +89,15 @@ func (q AdhocQuery) place() string {
 	b.WriteString("&" + ParamZone + "=" + q.Location.String())
 	b.WriteString("&" + ParamKinds + "=" + strings.Join(q.Kinds, ","))
 	b.WriteString("&" + ParamUTC + "=" + strconv.FormatBool(q.UTC))
+	if q.Name != "" {
+		b.WriteString("&" + ParamName + "=" + url.QueryEscape(q.Name))
+	}
+	if q.Horizon != 0 {
+		b.WriteString("&" + ParamHorizon + "=" + strconv.FormatFloat(q.Horizon, 'f', -1, 64))
+	}
+	if q.Alarm != 0 {
+		b.WriteString("&" + ParamAlarm + "=" + formatDuration(q.Alarm))
+	}
 	return b.String()
 }
 
@@ -147,6 +170,7 @@ func parseAdhoc(raw string, now time.Time, lim *adhocLimits) (AdhocQuery, error)
 		func() error { return q.parseKinds(get, lim) },
 		func() error { return q.parseWindow(get, now, lim) },
 		func() error { return q.parseUTC(get) },
+		func() error { return q.parseExtras(get, lim) },
 	} {
 		if err := step(); err != nil {
 			return q, err
@@ -217,11 +241,19 @@ func (q *AdhocQuery) parsePlace(get getter) error {
 	return nil
 }
 
-// parseZone reads tz (required).
+// parseZone reads tz; without it the zone is the one at the coordinates.
 func (q *AdhocQuery) parseZone(get getter, lim *adhocLimits) error {
 	tz, ok := get(ParamZone)
 	if !ok {
-		return &QueryError{Param: ParamZone, Msg: "required: an IANA time zone name such as Europe/Vienna"}
+		name, err := config.ZoneAt(q.Latitude, q.Longitude)
+		if err == nil {
+			q.Location, err = lim.zones.load(name)
+		}
+		if err != nil {
+			return &QueryError{Param: ParamZone, Msg: "no zone found at the coordinates: give an IANA time zone name such as Europe/Vienna"}
+		}
+		q.ZoneFound = true
+		return nil
 	}
 	var err error
 	if q.Location, err = lim.zones.load(tz); err != nil {

@@ -85,6 +85,8 @@ func (s *Server) newHandler() http.Handler {
 			metricsHandler.ServeHTTP(rec, r)
 		case routeAdhoc:
 			s.serveAdhoc(rec, r)
+		case routeFeeds:
+			s.serveFeedsJSON(rec, r)
 		default:
 			s.serveBundleFile(rec, r, name)
 		}

@@ -101,6 +101,13 @@ type Options struct {
 	// program's version and its VCS revision (either may be empty).
 	Version, Revision string
 
+	// BaseURL is the public URL the server is reached at; empty: links are
+	// made absolute from each request's Host. TrustedProxies are the
+	// proxies (IPs or CIDR prefixes) whose X-Forwarded-Host and
+	// X-Forwarded-Proto are believed then. SetPublic changes both.
+	BaseURL        string
+	TrustedProxies []string
+
 	// Adhoc renders an ad-hoc feed; nil turns the ad-hoc route off (404).
 	Adhoc AdhocFunc
 	// ParseKind validates one event kind of the ad-hoc "kinds" parameter
@@ -163,6 +170,7 @@ type Server struct {
 
 	cacheControl atomic.Pointer[[]string] // the Cache-Control header, from the refresh interval
 	snap         atomic.Pointer[snapshot]
+	public       publicHolder     // how links name the server (SetPublic)
 	now          func() time.Time // time.Now; tests fix "today"
 
 	buildMu sync.Mutex // serialises builds, so an older build never overwrites a newer one
@@ -244,6 +252,9 @@ func New(opts Options) (*Server, error) {
 		return nil, fmt.Errorf("serve: Options.Schedule: %w", err)
 	}
 	s.setCacheControl()
+	if err := s.SetPublic(opts.BaseURL, opts.TrustedProxies); err != nil {
+		return nil, err
+	}
 
 	s.limits = &adhocLimits{
 		parseKind:   opts.ParseKind,

@@ -22,7 +22,7 @@ import (
 )
 
 func TestRoutes(t *testing.T) {
-	s, _ := newTestServer(t, Options{Adhoc: adhocICS})
+	s, _ := newTestServer(t, Options{Adhoc: adhocICS, BaseURL: "https://sky.example.org/"}) // feeds.json as built
 	b := testBundle("a")
 	h := s.Handler()
 	for _, tc := range []struct {

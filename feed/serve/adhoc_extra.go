@@ -1,0 +1,82 @@
+package serve
+
+import (
+	"fmt"
+	"math"
+	"slices"
+	"strings"
+	"time"
+	"unicode"
+	"unicode/utf8"
+
+	"heliocal/config"
+)
+
+// Bounds of the place name of an ad-hoc query.
+const maxNameRunes = 80
+
+// parseExtras reads name, horizon, alarm and lighting.
+func (q *AdhocQuery) parseExtras(get getter, lim *adhocLimits) error {
+	if v, ok := get(ParamName); ok {
+		name := strings.Join(strings.Fields(v), " ")
+		if name == "" || utf8.RuneCountInString(name) > maxNameRunes {
+			return &QueryError{Param: ParamName, Value: v, Msg: fmt.Sprintf("must be 1..%d characters", maxNameRunes)}
+		}
+		for _, r := range name {
+			if unicode.IsControl(r) || r == utf8.RuneError {
+				return &QueryError{Param: ParamName, Value: v, Msg: "contains a control character"}
+			}
+		}
+		q.Name = name
+	}
+	if v, ok := get(ParamHorizon); ok {
+		h, err := parseFloat(ParamHorizon, v)
+		if err != nil {
+			return err
+		}
+		if h < config.MinHorizon || h > config.MaxHorizon {
+			return &QueryError{Param: ParamHorizon, Value: v,
+				Msg: fmt.Sprintf("must be within %g..%g degrees (the skyline's altitude; 0 for a flat horizon)", config.MinHorizon, config.MaxHorizon)}
+		}
+		q.Horizon = math.Round(h*10)/10 + 0
+	}
+	if v, ok := get(ParamAlarm); ok {
+		d, err := time.ParseDuration(strings.TrimSpace(v))
+		if err != nil {
+			return &QueryError{Param: ParamAlarm, Value: v, Msg: `not a duration such as "15m" or "1h"`}
+		}
+		if d < 0 || d > config.MaxAlarm {
+			return &QueryError{Param: ParamAlarm, Value: v, Msg: "must be within 0..168h (the time before each event)"}
+		}
+		q.Alarm = d.Round(time.Minute)
+	}
+	if v, ok := get(ParamLighting); ok {
+		d, err := time.ParseDuration(strings.TrimSpace(v))
+		if err != nil || d <= 0 || d >= 24*time.Hour {
+			return &QueryError{Param: ParamLighting, Value: v, Msg: `must be a day length between 0 and 24h, e.g. "16h" or "14h30m"`}
+		}
+		k, err := lim.parseKind(config.KindLighting + ":" + formatDuration(d))
+		if err != nil {
+			return &QueryError{Param: ParamLighting, Value: v, Msg: oneLine(err.Error())}
+		}
+		if len(q.Kinds) >= maxKinds {
+			return &QueryError{Param: ParamLighting, Value: v, Msg: fmt.Sprintf("more than %d kinds", maxKinds)}
+		}
+		kinds := append(slices.Clone(q.Kinds), k) // Kinds may be the shared default list
+		slices.Sort(kinds)
+		q.Kinds = slices.Compact(kinds)
+	}
+	return nil
+}
+
+// formatDuration writes 16h0m0s as "16h", 14h30m0s as "14h30m", 15m0s as "15m".
+func formatDuration(d time.Duration) string {
+	s := d.String()
+	if strings.HasSuffix(s, "m0s") {
+		s = strings.TrimSuffix(s, "0s")
+	}
+	if strings.HasSuffix(s, "h0m") {
+		s = strings.TrimSuffix(s, "0m")
+	}
+	return s
+}

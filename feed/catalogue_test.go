@@ -614,3 +614,50 @@ func TestLightBands(t *testing.T) {
 		}
 	}
 }
+
+// A night belongs to the date of its evening (noon to noon): a dark window
+// that starts after midnight is listed under the evening before, its times
+// carry "+1 day", and its title and a night's note name the night.
+func TestNightDates(t *testing.T) {
+	s := site(t, "oslo", 60, 10.75, "Europe/Oslo")
+	loc := s.TimeZone.Location
+	sk := sky(t, "2027-02-01", "2027-02-28")
+	specs := []config.KindSpec{{Kind: mustKinds(t, "dark-window")[0], MaxIllumination: 0.3}}
+	events, _, err := sk.EventsFor(context.Background(), PlaceOf(s), specs, date("2027-02-12"), date("2027-02-12"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(events) != 1 {
+		t.Fatalf("%d dark windows on the night of 12–13 February", len(events))
+	}
+	e := events[0]
+	if e.Date != date("2027-02-12") || localDate(e.Start, loc) != date("2027-02-13") {
+		t.Fatalf("window %s listed on %s; want one after midnight listed on the evening's date", e.Start.In(loc), e.Date.Format(time.DateOnly))
+	}
+	title, desc := describe(newSiteInfo(s), e)
+	if !strings.Contains(title, "night of 12–13 February 2027") || !strings.Contains(desc, "+1 day to") || !strings.HasPrefix(desc, "Dark sky on the night of 12–13 February 2027 from 01:") {
+		t.Errorf("title %q, description %q", title, desc)
+	}
+	n := Note{Kind: mustKinds(t, "dark-window")[0], Date: date("2027-02-13"), State: astro.AlwaysBelow}
+	if title, _ := describeNote(newSiteInfo(s), n); !strings.HasPrefix(title, "No dark sky on the night of 13–14 February 2027") {
+		t.Errorf("note %q", title)
+	}
+	for _, c := range []struct {
+		t    string
+		want string
+	}{
+		{"2027-02-12T23:59:59.4+01:00", ""}, {"2027-02-12T23:59:59.6+01:00", " +1 day"}, {"2027-02-14T00:10:00+01:00", " +2 days"},
+		{"2027-02-11T23:00:00+01:00", " −1 day"},
+	} {
+		tm, _ := time.Parse(time.RFC3339Nano, c.t)
+		if got := DayMark(tm, date("2027-02-12"), loc); got != c.want {
+			t.Errorf("DayMark(%s) = %q, want %q", c.t, got, c.want)
+		}
+	}
+	if got := NightOf(date("2027-12-31")); got != "night of 31 December 2027–1 January 2028" {
+		t.Errorf("NightOf: %q", got)
+	}
+	if got := NightOf(date("2027-03-31")); got != "night of 31 March–1 April 2027" {
+		t.Errorf("NightOf: %q", got)
+	}
+}

@@ -225,9 +225,9 @@ func describeMoon(s *siteInfo, e Event) (string, string) {
 		fmt.Fprintf(&b, " (%s, %s lit).", waxing(e), percent(e.Illuminated))
 	case "dark-window":
 		length := amount(ToSecond(e.End).Sub(ToSecond(e.Start)).Round(time.Minute))
-		title = fmt.Sprintf("Dark sky, %s", length)
-		fmt.Fprintf(&b, "Dark sky from %s to %s (%s), %s: the Sun is more than 18° below the horizon and ",
-			at, localClock(e.End, loc), length, s.where)
+		title = fmt.Sprintf("Dark sky, %s, %s", length, NightOf(e.Date))
+		fmt.Fprintf(&b, "Dark sky on the %s from %s%s to %s%s (%s), %s: the Sun is more than 18° below the horizon and ",
+			NightOf(e.Date), at, DayMark(e.Start, e.Date, loc), localClock(e.End, loc), DayMark(e.End, e.Date, loc), length, s.where)
 		if e.Illuminated > 0 {
 			fmt.Fprintf(&b, "the Moon is down or less than %s lit.", percent(e.Illuminated))
 		} else {
@@ -257,9 +257,9 @@ func describeMoonNote(s *siteInfo, n Note) (string, string) {
 		title = "No Moon transit today: the Moon crosses the meridian about 50 minutes later each day"
 	case "dark-window":
 		if n.State == astro.AlwaysAbove {
-			title = "No dark sky tonight: the Sun stays less than 18° below the horizon"
+			title = "No dark sky on the " + NightOf(n.Date) + ": the Sun stays less than 18° below the horizon"
 		} else {
-			title = "No dark sky tonight: the Moon is up and bright all through the astronomical night"
+			title = "No dark sky on the " + NightOf(n.Date) + ": the Moon is up and bright all through the astronomical night"
 		}
 	default:
 		title = n.Kind.String()

@@ -38,6 +38,40 @@ func localClock(t time.Time, loc *time.Location) string {
 	return string(append(b, zone...))
 }
 
+// NightOf names the night that begins on the evening of the local date d
+// (00:00 UTC): "night of 3–4 March", "night of 31 March–1 April". A night
+// belongs to the date of its evening and runs from local noon to local noon
+// (astro.DarkWindows).
+func NightOf(d time.Time) string {
+	n := d.AddDate(0, 0, 1)
+	switch {
+	case n.Year() != d.Year():
+		return "night of " + d.Format("2 January 2006") + "–" + n.Format("2 January 2006")
+	case n.Month() != d.Month():
+		return "night of " + d.Format("2 January") + "–" + n.Format("2 January 2006")
+	}
+	return "night of " + d.Format("2") + "–" + n.Format("2 January 2006")
+}
+
+// DayMark returns "" when the instant t (as shown, to the second) falls on
+// the local date d (00:00 UTC) in loc, else " +1 day" (" +2 days", " −1
+// day"): written after the clock time of an event listed under another date,
+// such as the after-midnight part of a night.
+func DayMark(t, d time.Time, loc *time.Location) string {
+	n := int(math.Round(localDate(ToSecond(t), loc).Sub(d).Hours() / 24))
+	switch {
+	case n == 0:
+		return ""
+	case n == 1:
+		return " +1 day"
+	case n > 1:
+		return fmt.Sprintf(" +%d days", n)
+	case n == -1:
+		return " −1 day"
+	}
+	return fmt.Sprintf(" −%d days", -n)
+}
+
 // twoDigits writes 0..99 with a leading zero.
 func twoDigits(n int) string {
 	return string([]byte{byte('0' + n/10), byte('0' + n%10)})
@@ -248,7 +282,7 @@ func describe(s *siteInfo, e Event) (string, string) {
 			light = "a band of the Sun's altitude chosen for this feed"
 		}
 		title = title + " (" + partName(e.Part) + ")"
-		b.WriteString(title + " from " + at + " to " + localClock(e.End, loc) + " (" + hm(ToSecond(e.End).Sub(ToSecond(e.Start))) +
+		b.WriteString(title + " from " + at + DayMark(e.Start, e.Date, loc) + " to " + localClock(e.End, loc) + DayMark(e.End, e.Date, loc) + " (" + hm(ToSecond(e.End).Sub(ToSecond(e.Start))) +
 			").\nThe Sun's centre is between " + between(e.Low, e.High) + ": " + light + ".")
 		if e.High > -1 {
 			b.WriteString("\n" + cautionEyes) // the Sun may be in view

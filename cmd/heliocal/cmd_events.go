@@ -470,7 +470,7 @@ func stateText(s astro.State) string {
 func details(e *feed.Event, loc *time.Location) string {
 	var parts []string
 	if !e.End.IsZero() {
-		parts = append(parts, fmt.Sprintf("until %s (%s)", clock(e.End, loc), words(feed.ToSecond(e.End).Sub(feed.ToSecond(e.Start)).Round(time.Minute))))
+		parts = append(parts, fmt.Sprintf("until %s%s (%s)", clock(e.End, loc), feed.DayMark(e.End, e.Date, loc), words(feed.ToSecond(e.End).Sub(feed.ToSecond(e.Start)).Round(time.Minute))))
 	}
 	if e.Part != "" {
 		parts = append(parts, e.Part)

@@ -256,12 +256,9 @@ func writeEntriesTable(w io.Writer, s *config.Site, cal *feed.Calendar) error {
 		e := &cal.Entries[i]
 		when := "all day"
 		if !e.AllDay {
-			when = feed.ToSecond(e.Start).In(loc).Format("15:04:05 MST")
+			when = feed.ToSecond(e.Start).In(loc).Format("15:04:05 MST") + feed.DayMark(e.Start, e.Date, loc)
 			if !e.End.IsZero() {
-				when += "–" + clock(e.End, loc)
-				if ed := e.End.In(loc); time.Date(ed.Year(), ed.Month(), ed.Day(), 0, 0, 0, 0, time.UTC).After(e.Date) {
-					when += " +1 day"
-				}
+				when += "–" + clock(e.End, loc) + feed.DayMark(e.End, e.Date, loc)
 			}
 		}
 		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\n", e.Date.Format("2006-01-02 Mon"), when, e.Kind, e.Title)
@@ -284,6 +281,13 @@ func toJSONNote(n feed.Note) jsonNote {
 
 // noteText is a note's details in the table.
 func noteText(n *feed.Note) string {
+	if n.Kind.Name == "dark-window" {
+		why := "the Sun stays less than 18° below the horizon"
+		if n.State == astro.AlwaysBelow {
+			why = "the Moon is up and bright"
+		}
+		return "no dark sky on the " + feed.NightOf(n.Date) + ": " + why
+	}
 	if n.Kind.Name != config.KindLighting {
 		return stateText(n.State)
 	}

@@ -341,7 +341,7 @@ func (t *tableSink) chunk(ch feed.Chunk) error {
 		e := r.event
 		at := "all day"
 		if !e.DateOnly() {
-			at = feed.ToSecond(e.Start).In(t.loc).Format("15:04:05 MST")
+			at = feed.ToSecond(e.Start).In(t.loc).Format("15:04:05 MST") + feed.DayMark(e.Start, e.Date, t.loc)
 		}
 		t.rows = append(t.rows, [4]string{e.Date.Format("2006-01-02 Mon"), at, e.Kind.String(), details(e, t.loc)})
 	}

@@ -35,10 +35,8 @@ func ExampleMarshal() {
 	// VERSION:2.0
 	// PRODID:-//heliocal//heliocal 1.0.0//EN
 	// CALSCALE:GREGORIAN
-	// METHOD:PUBLISH
 	// NAME:Heron Marsh Greenhouses – sunrise
 	// X-WR-CALNAME:Heron Marsh Greenhouses – sunrise
-	// X-WR-TIMEZONE:UTC
 	// LAST-MODIFIED:20260601T000000Z
 	// BEGIN:VEVENT
 	// UID:heron-sun-sunrise-2026-06-21@heliocal

@@ -246,7 +246,11 @@ func build(c *feed.Calendar, opts Options) (*ics.Calendar, int, error) {
 	cal := ics.NewCalendarFor("heliocal")
 	cal.SetProductId(opts.ProductID())
 	cal.SetCalscale("GREGORIAN")
-	cal.SetMethod(ics.MethodPublish)
+	// No METHOD: a subscribed feed is not an iTIP message (RFC 5546), and
+	// METHOD:PUBLISH would oblige every event to carry an ORGANIZER (RFC 5546
+	// §3.2.1; libical's restriction check flags each one without it). RFC
+	// 5545 §3.6.1 asks DTSTART of every event when METHOD is absent: they all
+	// have one.
 	if t := cleanText(c.Title); t != "" {
 		cal.SetName(t) // NAME and X-WR-CALNAME
 	}
@@ -272,9 +276,10 @@ func build(c *feed.Calendar, opts Options) (*ics.Calendar, int, error) {
 	if c.PageURL != "" {
 		cal.SetUrl(c.PageURL) // URL defaults to URI: not escaped
 	}
-	if tz := loc.String(); tz != "" {
-		cal.SetXWRTimezone(cleanText(tz))
-	}
+	// No X-WR-TIMEZONE: every time already says its zone (TZID, UTC or an
+	// all-day date), and a widely used expansion library reads UTC times
+	// through it: an event written in UTC in the hour that repeats when
+	// clocks go back comes out an hour late there (tested).
 	cal.SetLastModified(w.stamp)
 
 	if w.loc != nil {

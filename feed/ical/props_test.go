@@ -28,7 +28,6 @@ func TestCalendarHeader(t *testing.T) {
 		"VERSION:2.0",
 		"PRODID:-//heliocal//heliocal 0.9.0//EN",
 		"CALSCALE:GREGORIAN",
-		"METHOD:PUBLISH",
 		`NAME:Kestrelbrook Orchard: sun\, twilight`,
 		`X-WR-CALNAME:Kestrelbrook Orchard: sun\, twilight`,
 		`DESCRIPTION:Sunrise\; sunset\nand twilight`,
@@ -38,7 +37,6 @@ func TestCalendarHeader(t *testing.T) {
 		"COLOR:darkorange",
 		"SOURCE;VALUE=URI:https://feeds.example.org/kestrel-sun.ics",
 		"URL:https://feeds.example.org/",
-		"X-WR-TIMEZONE:Europe/Vienna",
 		"LAST-MODIFIED:20260601T000000Z",
 		"",
 	}, "\r\n")

@@ -49,6 +49,9 @@ var zonePlaces = []struct {
 }
 
 func TestZoneAtKnownPlaces(t *testing.T) {
+	if raceEnabled && testing.Short() {
+		t.Skip("loads the zone polygons: covered by the run without -race")
+	}
 	for _, p := range zonePlaces {
 		got, err := ZoneAt(p.lat, p.lon)
 		if err != nil {
@@ -75,6 +78,9 @@ func TestZoneAtRefusesOutOfRange(t *testing.T) {
 // Every point of the globe gets a zone Go's tz database can load: the poles,
 // the date line, a grid over land and sea.
 func TestZoneAtEverywhereLoadable(t *testing.T) {
+	if raceEnabled && testing.Short() {
+		t.Skip("loads the zone polygons: covered by the run without -race")
+	}
 	step := 10.0
 	if testing.Short() {
 		step = 30
@@ -104,6 +110,9 @@ func TestZoneAtConcurrent(t *testing.T) {
 // over the globe and at the named places. Where polygons overlap (disputed
 // land, e.g. Abyei between the two Sudans) the tiles give one of them.
 func TestZoneTilesAgreeWithPolygons(t *testing.T) {
+	if raceEnabled && testing.Short() {
+		t.Skip("loads the zone polygons: covered by the run without -race")
+	}
 	tiles, err := zoneTiles()
 	if err != nil {
 		t.Fatal(err)

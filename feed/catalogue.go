@@ -312,7 +312,7 @@ func (w *entryWriter) event(spec config.KindSpec, e Event) {
 		en.End = e.End.Add(offset)
 	}
 	en.Alarm = w.alarm
-	en.Facts = Facts{Part: e.Part, Direction: e.Direction, Altitude: e.Altitude, Distance: e.Distance,
+	en.Facts = Facts{Part: e.Part, Direction: e.Direction, Altitude: e.Altitude, Azimuth: e.Azimuth, Distance: e.Distance,
 		Illuminated: e.Illuminated, DayLength: e.DayLength, Lamp: e.Lamp, Short: e.Short}
 	if spec.AllDay || e.Kind.Name == "photoperiod" {
 		d := localDate(en.Start, loc)

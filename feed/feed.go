@@ -55,6 +55,7 @@ type Facts struct {
 	State       astro.State     // notes: on which side the Sun or Moon stays
 	Until       time.Time       // lighting notes: first date lamps are needed again (zero: not in the window)
 	Altitude    float64         // degrees (solar noon, Moon transit)
+	Azimuth     float64         // degrees from north through east (rise and set)
 	Distance    float64         // au (perihelion, aphelion)
 	Illuminated float64         // the Moon's illuminated fraction
 	DayLength   time.Duration   // the natural day on the date

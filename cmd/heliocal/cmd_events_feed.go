@@ -6,7 +6,6 @@ import (
 	"encoding/json"
 	"fmt"
 	"io"
-	"math"
 	"strconv"
 	"strings"
 	"text/tabwriter"
@@ -126,6 +125,7 @@ type jsonEntry struct {
 	State       string   `json:"state,omitempty"`
 	Until       string   `json:"until,omitempty"`
 	Altitude    *float64 `json:"altitude_deg,omitempty"`
+	Azimuth     *float64 `json:"azimuth_deg,omitempty"`
 	Distance    *float64 `json:"distance_au,omitempty"`
 	DayLength   *float64 `json:"day_length_s,omitempty"`
 	DayChange   *float64 `json:"day_change_s,omitempty"`
@@ -139,8 +139,10 @@ type jsonEntry struct {
 	Description string   `json:"description"`
 }
 
-func roundTo(x, unit float64) *float64 {
-	v := math.Round(x/unit) * unit
+// roundTo rounds x to the given number of decimals, as the nearest
+// float64 to the decimal written (no 124.21000000000001 in the output).
+func roundTo(x float64, decimals int) *float64 {
+	v, _ := strconv.ParseFloat(strconv.FormatFloat(x, 'f', decimals, 64), 64)
 	return &v
 }
 
@@ -148,7 +150,7 @@ func seconds(d time.Duration) *float64 {
 	if d == 0 {
 		return nil
 	}
-	return roundTo(d.Seconds(), 0.001)
+	return roundTo(d.Seconds(), 3)
 }
 
 func toJSONEntry(cal *feed.Calendar, e *feed.Entry) jsonEntry {
@@ -179,7 +181,10 @@ func toJSONEntry(cal *feed.Calendar, e *feed.Entry) jsonEntry {
 		}
 	}
 	if f.Altitude != 0 {
-		j.Altitude = roundTo(f.Altitude, 1e-4)
+		j.Altitude = roundTo(f.Altitude, 4)
+	}
+	if f.Azimuth != 0 {
+		j.Azimuth = roundTo(f.Azimuth, 2)
 	}
 	if f.Distance != 0 {
 		d := f.Distance
@@ -187,7 +192,7 @@ func toJSONEntry(cal *feed.Calendar, e *feed.Entry) jsonEntry {
 	}
 	j.DayLength, j.DayChange, j.Lamp = seconds(f.DayLength), seconds(f.DayChange), seconds(f.Lamp)
 	if f.Illuminated != 0 {
-		j.Lit = roundTo(f.Illuminated, 1e-4)
+		j.Lit = roundTo(f.Illuminated, 4)
 	}
 	return j
 }
@@ -212,7 +217,7 @@ func writeEntriesCSV(w io.Writer, cal *feed.Calendar) error {
 	loc := cal.Site.Location
 	cw := csv.NewWriter(w)
 	header := []string{"date", "kind", "title", "all_day", "start_utc", "end_utc", "start_local", "end_local",
-		"part", "direction", "note", "state", "until", "altitude_deg", "distance_au", "day_length_s", "day_change_s",
+		"part", "direction", "note", "state", "until", "altitude_deg", "azimuth_deg", "distance_au", "day_length_s", "day_change_s",
 		"illuminated", "lamp_s", "target_not_reached", "next_day", "missing_start", "alarm_s", "uid", "description"}
 	_ = cw.Write(header)
 	for i := range cal.Entries {
@@ -226,7 +231,7 @@ func writeEntriesCSV(w io.Writer, cal *feed.Calendar) error {
 			}
 		}
 		_ = cw.Write([]string{j.Date, j.Kind, j.Title, yes(j.AllDay), j.Start, j.End, startLocal, endLocal,
-			j.Part, j.Direction, yes(j.Note), j.State, j.Until, num(j.Altitude), num(j.Distance), num(j.DayLength),
+			j.Part, j.Direction, yes(j.Note), j.State, j.Until, num(j.Altitude), num(j.Azimuth), num(j.Distance), num(j.DayLength),
 			num(j.DayChange), num(j.Lit), num(j.Lamp), yes(j.Short), yes(j.NextDay), j.Missing, num(j.Alarm), j.UID, j.Description})
 	}
 	cw.Flush()

@@ -267,6 +267,25 @@ func TestSystemdUnits(t *testing.T) {
 			}
 		}
 	}
+	// The comments and the ordering say what the units do: a unit without
+	// network (PrivateNetwork=yes) is not ordered after network-online, and
+	// only a unit with a StateDirectory= speaks of its state directory.
+	for name := range want {
+		data, err := os.ReadFile(filepath.Join("systemd", name))
+		if err != nil {
+			t.Fatal(err)
+		}
+		text := string(data)
+		if strings.Contains(text, "PrivateNetwork=yes") && strings.Contains(text, "network-online.target") {
+			t.Errorf("%s has no network (PrivateNetwork=yes) but is ordered after network-online.target", name)
+		}
+		hasState := regexp.MustCompile(`(?m)^StateDirectory=`).MatchString(text)
+		for _, line := range strings.Split(text, "\n") {
+			if strings.HasPrefix(line, "#") && strings.Contains(line, "state directory") && !strings.Contains(line, "no state directory") && !hasState {
+				t.Errorf("%s: comment %q speaks of a state directory the unit does not have", name, line)
+			}
+		}
+	}
 	analyze, err := exec.LookPath("systemd-analyze")
 	if err != nil {
 		t.Skip("systemd-analyze not installed")
@@ -327,31 +346,78 @@ func TestDockerfile(t *testing.T) {
 	}
 }
 
-// TestNginx: nginx -t accepts the server block inside a minimal main
-// configuration, when nginx is installed (certificate paths pointed at a
-// throw-away self-signed pair, everything else as shipped).
+// TestNginx: both example sites (static files, and a reverse proxy for
+// serve) use the "http2 on;" directive, not the deprecated listen
+// parameter; the proxy passes the client's host, scheme and address, keeps
+// /healthz out of any cache and leaves compression to heliocal; and nginx -t
+// accepts each inside a minimal main configuration when nginx is installed
+// (certificate paths pointed at a throw-away self-signed pair, everything
+// else as shipped). nginx older than 1.25.1 does not know "http2 on;": for
+// it the test writes the listen parameter instead, as the comment in the
+// files tells.
 func TestNginx(t *testing.T) {
+	proxy, err := os.ReadFile("nginx/heliocal-serve.conf")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{"proxy_pass http://heliocal_serve;", "proxy_set_header Host $host;",
+		"proxy_set_header X-Forwarded-For $proxy_add_x_forwarded_for;", "proxy_set_header X-Forwarded-Proto $scheme;",
+		"gzip off;", "server 127.0.0.1:8080;"} {
+		if !bytes.Contains(proxy, []byte(want)) {
+			t.Errorf("heliocal-serve.conf lacks %q", want)
+		}
+	}
+	health := regexp.MustCompile(`(?s)location = /healthz \{(.*?)\}`).FindSubmatch(proxy)
+	if health == nil || !bytes.Contains(health[1], []byte("proxy_no_cache 1;")) || !bytes.Contains(health[1], []byte(`"no-store"`)) {
+		t.Errorf("/healthz may be cached: %q", health)
+	}
+	unit, err := os.ReadFile("systemd/heliocal.service")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.Contains(unit, []byte("--listen 127.0.0.1:8080")) {
+		t.Error("heliocal.service does not listen where heliocal-serve.conf sends requests")
+	}
+	for _, name := range []string{"heliocal.conf", "heliocal-serve.conf"} {
+		site, err := os.ReadFile(filepath.Join("nginx", name))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !bytes.Contains(site, []byte("\n    http2 on;\n")) || regexp.MustCompile(`(?m)^\s*listen [^;]*http2`).Match(site) {
+			t.Errorf("%s: want \"http2 on;\", not the listen parameter", name)
+		}
+	}
+
 	nginx, err := exec.LookPath("nginx")
 	if err != nil {
 		t.Skip("nginx not installed")
-	}
-	dir := t.TempDir()
-	cert, key := selfSigned(t, dir)
-	site, err := os.ReadFile("nginx/heliocal.conf")
-	if err != nil {
-		t.Fatal(err)
-	}
-	site = bytes.ReplaceAll(site, []byte("/etc/ssl/certs/sky.example.org.pem"), []byte(cert))
-	site = bytes.ReplaceAll(site, []byte("/etc/ssl/private/sky.example.org.key"), []byte(key))
-	sitePath := filepath.Join(dir, "site.conf")
-	if err := os.WriteFile(sitePath, site, 0o644); err != nil {
-		t.Fatal(err)
 	}
 	mime := "/etc/nginx/mime.types"
 	if _, err := os.Stat(mime); err != nil {
 		t.Skip("no /etc/nginx/mime.types")
 	}
-	main := fmt.Sprintf(`pid %[1]s/nginx.pid;
+	ver, _ := exec.Command(nginx, "-v").CombinedOutput()
+	oldNginx := nginxBefore(string(ver), 1, 25, 1)
+	for _, name := range []string{"heliocal.conf", "heliocal-serve.conf"} {
+		t.Run(name, func(t *testing.T) {
+			dir := t.TempDir()
+			cert, key := selfSigned(t, dir)
+			site, err := os.ReadFile(filepath.Join("nginx", name))
+			if err != nil {
+				t.Fatal(err)
+			}
+			site = bytes.ReplaceAll(site, []byte("/etc/ssl/certs/sky.example.org.pem"), []byte(cert))
+			site = bytes.ReplaceAll(site, []byte("/etc/ssl/private/sky.example.org.key"), []byte(key))
+			if oldNginx {
+				t.Logf("%s: writing the listen parameter for \"http2 on;\"", strings.TrimSpace(string(ver)))
+				site = bytes.ReplaceAll(site, []byte("\n    http2 on;\n"), []byte("\n"))
+				site = bytes.ReplaceAll(site, []byte("443 ssl;"), []byte("443 ssl http2;"))
+			}
+			sitePath := filepath.Join(dir, "site.conf")
+			if err := os.WriteFile(sitePath, site, 0o644); err != nil {
+				t.Fatal(err)
+			}
+			main := fmt.Sprintf(`pid %[1]s/nginx.pid;
 error_log %[1]s/error.log;
 events {}
 http {
@@ -365,17 +431,39 @@ http {
     include %[3]s;
 }
 `, dir, mime, sitePath)
-	mainPath := filepath.Join(dir, "nginx.conf")
-	if err := os.WriteFile(mainPath, []byte(main), 0o644); err != nil {
-		t.Fatal(err)
+			mainPath := filepath.Join(dir, "nginx.conf")
+			if err := os.WriteFile(mainPath, []byte(main), 0o644); err != nil {
+				t.Fatal(err)
+			}
+			out, err := exec.Command(nginx, "-t", "-q", "-p", dir, "-c", mainPath).CombinedOutput()
+			if err != nil {
+				t.Errorf("nginx -t: %v\n%s", err, out)
+			}
+			if bytes.Contains(out, []byte("[warn]")) && !(oldNginx && bytes.Contains(out, []byte("http2"))) {
+				t.Errorf("nginx -t warns:\n%s", out)
+			}
+		})
 	}
-	out, err := exec.Command(nginx, "-t", "-q", "-p", dir, "-c", mainPath).CombinedOutput()
-	if err != nil {
-		t.Errorf("nginx -t: %v\n%s", err, out)
+}
+
+// nginxBefore reports whether "nginx version: nginx/1.22.1" is older than
+// major.minor.patch.
+func nginxBefore(v string, major, minor, patch int) bool {
+	m := regexp.MustCompile(`nginx/(\d+)\.(\d+)\.(\d+)`).FindStringSubmatch(v)
+	if m == nil {
+		return false
 	}
-	if bytes.Contains(out, []byte("[warn]")) {
-		t.Errorf("nginx -t warns:\n%s", out)
+	var got [3]int
+	for i := range got {
+		got[i], _ = strconv.Atoi(m[i+1])
 	}
+	want := [3]int{major, minor, patch}
+	for i := range got {
+		if got[i] != want[i] {
+			return got[i] < want[i]
+		}
+	}
+	return false
 }
 
 // selfSigned writes a throw-away certificate and key for nginx -t.

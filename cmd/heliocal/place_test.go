@@ -1,10 +1,13 @@
 package main
 
 import (
+	"context"
 	"encoding/json"
+	"io"
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
 )
 
 // A place needs both coordinates: a missing one is named, never taken as 0°.
@@ -79,5 +82,26 @@ func TestPublishNamesInferredZone(t *testing.T) {
 	}
 	if !strings.Contains(errOut, "site cane-field has no timezone: using America/Havana") {
 		t.Errorf("publish does not name the zone it took:\n%s", errOut)
+	}
+}
+
+// serve logs which zone it took for a site without timezone.
+func TestServeLogsInferredZone(t *testing.T) {
+	cfg := filepath.Join("..", "..", "testdata", "config", "missing-timezone.yaml")
+	ctx, cancel := context.WithCancel(context.Background())
+	logs := &lockedBuffer{}
+	done := make(chan int, 1)
+	go func() {
+		done <- run(ctx, []string{"serve", "--config", cfg, "--listen", "127.0.0.1:0", "--access-log=false"}, io.Discard, logs, noEnv)
+	}()
+	for deadline := time.Now().Add(30 * time.Second); !strings.Contains(logs.String(), "msg=serving"); time.Sleep(20 * time.Millisecond) {
+		if time.Now().After(deadline) {
+			t.Fatalf("serve did not start:\n%s", logs.String())
+		}
+	}
+	cancel()
+	<-done
+	if !strings.Contains(logs.String(), "site without timezone") || !strings.Contains(logs.String(), "zone=America/Havana") {
+		t.Errorf("serve does not log the zone it took:\n%s", logs.String())
 	}
 }

@@ -19,6 +19,7 @@ import (
 	"os/exec"
 	"path/filepath"
 	"regexp"
+	"slices"
 	"strconv"
 	"strings"
 	"testing"
@@ -27,6 +28,7 @@ import (
 	"go.yaml.in/yaml/v3"
 
 	"heliocal/config"
+	"heliocal/feed/publish"
 )
 
 type doc = map[string]any
@@ -40,6 +42,9 @@ func manifests(t *testing.T) map[string]doc { // kind/name → document
 	}
 	out := map[string]doc{}
 	for _, f := range files {
+		if filepath.Base(f) == "kustomization.yaml" {
+			continue // not a manifest: the list of them (see TestKustomization)
+		}
 		data, err := os.ReadFile(f)
 		if err != nil {
 			t.Fatal(err)
@@ -124,6 +129,7 @@ func TestKubernetesServe(t *testing.T) {
 		t.Errorf("container securityContext %v", sc)
 	}
 	checkConfigVolume(t, m, pod, c, args)
+	checkImageAndMemory(t, c)
 
 	// The Service selects the Deployment's pods and targets a named port.
 	svc := m["Service/heliocal"]
@@ -159,15 +165,22 @@ func TestKubernetesPublish(t *testing.T) {
 	if str(args[0]) != "publish" {
 		t.Errorf("args %v: want publish", args)
 	}
-	shard := argAfter(args, "--shard")
-	mm := regexp.MustCompile(`^\$\(JOB_COMPLETION_INDEX\)/(\d+)$`).FindStringSubmatch(shard)
-	if mm == nil {
-		t.Fatalf("--shard %q, want $(JOB_COMPLETION_INDEX)/N", shard)
+	// The shard count is written once, as completions; the file leaves
+	// parallelism and the "/SHARDS" of --shard to kustomize (see
+	// TestKustomization), and without it heliocal refuses the argument.
+	if n, ok := get(job, "completions").(int); !ok || n < 2 {
+		t.Errorf("completions %v, want the shard count", get(job, "completions"))
 	}
-	n, _ := strconv.Atoi(mm[1])
-	if get(job, "completions") != n || get(job, "parallelism") != n {
-		t.Errorf("--shard .../%d but completions %v, parallelism %v", n, get(job, "completions"), get(job, "parallelism"))
+	if get(job, "parallelism") != nil {
+		t.Errorf("parallelism %v written beside completions", get(job, "parallelism"))
 	}
+	if shard := str(get(c, "args", "4")); argAfter(args, "--shard") != shard || shard != "$(JOB_COMPLETION_INDEX)/SHARDS" {
+		t.Fatalf("args[4] %q, --shard %q: want --shard $(JOB_COMPLETION_INDEX)/SHARDS at index 4", shard, argAfter(args, "--shard"))
+	}
+	if _, err := publish.ParseShard("0/SHARDS"); err == nil {
+		t.Error(`--shard "0/SHARDS" (applied without kustomize) is accepted`)
+	}
+	checkImageAndMemory(t, c)
 	// --out must be a mounted volume backed by the shared claim.
 	out := argAfter(args, "--out")
 	vol := mountAt(c, out)
@@ -186,6 +199,119 @@ func TestKubernetesPublish(t *testing.T) {
 		t.Error("publish container not read-only and non-root")
 	}
 	checkConfigVolume(t, m, pod, c, args)
+}
+
+// checkImageAndMemory: the image is pinned to a version (a moving tag
+// with IfNotPresent leaves each node on whatever it pulled first), and
+// GOMEMLIMIT follows the container's memory limit.
+func checkImageAndMemory(t *testing.T, c any) {
+	t.Helper()
+	image := str(get(c, "image"))
+	if !regexp.MustCompile(`:v\d+\.\d+\.\d+$|@sha256:[0-9a-f]{64}$`).MatchString(image) {
+		t.Errorf("image %q is not pinned to a version", image)
+	}
+	found := false
+	for _, e := range get(c, "env").([]any) {
+		if str(get(e, "name")) == "GOMEMLIMIT" {
+			found = true
+			ref := get(e, "valueFrom", "resourceFieldRef")
+			if str(get(ref, "resource")) != "limits.memory" || str(get(ref, "containerName")) != str(get(c, "name")) {
+				t.Errorf("GOMEMLIMIT from %v, want this container's limits.memory", ref)
+			}
+		}
+	}
+	if !found || get(c, "resources", "limits", "memory") == nil {
+		t.Errorf("container %v: no GOMEMLIMIT from a memory limit", get(c, "name"))
+	}
+}
+
+// TestKustomization: kustomization.yaml lists every manifest, and its
+// replacements copy the publish Job's completions into parallelism and into
+// the part after "/" of --shard. The test applies those replacements the
+// way kustomize does (copy the source value; with a delimiter, replace that
+// part of the target string) and checks the result.
+func TestKustomization(t *testing.T) {
+	data, err := os.ReadFile("kubernetes/kustomization.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	var k struct {
+		Resources    []string
+		Replacements []struct {
+			Source struct {
+				Kind, Name string
+				FieldPath  string `yaml:"fieldPath"`
+			}
+			Targets []struct {
+				Select     struct{ Kind, Name string }
+				FieldPaths []string `yaml:"fieldPaths"`
+				Options    struct {
+					Delimiter string
+					Index     int
+					Create    bool
+				}
+			}
+		}
+	}
+	if err := yaml.Unmarshal(data, &k); err != nil {
+		t.Fatal(err)
+	}
+	files, _ := filepath.Glob("kubernetes/*.yaml")
+	for _, f := range files {
+		if b := filepath.Base(f); b != "kustomization.yaml" && !slices.Contains(k.Resources, b) {
+			t.Errorf("kustomization.yaml does not list %s", b)
+		}
+	}
+	m := manifests(t)
+	job := get(m["CronJob/heliocal-publish"], "spec", "jobTemplate", "spec")
+	if len(k.Replacements) != 1 || k.Replacements[0].Source.Kind != "CronJob" || k.Replacements[0].Source.Name != "heliocal-publish" ||
+		k.Replacements[0].Source.FieldPath != "spec.jobTemplate.spec.completions" {
+		t.Fatalf("replacements %+v: want one, from the publish CronJob's completions", k.Replacements)
+	}
+	n := str(get(job, "completions"))
+	var parallelism, shard string
+	for _, tg := range k.Replacements[0].Targets {
+		if tg.Select.Kind != "CronJob" || tg.Select.Name != "heliocal-publish" || len(tg.FieldPaths) != 1 {
+			t.Fatalf("target %+v", tg)
+		}
+		switch fp := tg.FieldPaths[0]; fp {
+		case "spec.jobTemplate.spec.parallelism":
+			if !tg.Options.Create {
+				t.Error("parallelism is not in the file: the replacement must create it")
+			}
+			parallelism = n
+		case "spec.jobTemplate.spec.template.spec.containers.[name=publish].args.4":
+			c := get(job, "template", "spec", "containers", "0")
+			if str(get(c, "name")) != "publish" {
+				t.Fatalf("container %v, want publish", get(c, "name"))
+			}
+			parts := strings.Split(str(get(c, "args", "4")), tg.Options.Delimiter)
+			if tg.Options.Delimiter != "/" || tg.Options.Index != 1 || len(parts) != 2 {
+				t.Fatalf("target %s: options %+v on %q", fp, tg.Options, get(c, "args", "4"))
+			}
+			parts[tg.Options.Index] = n
+			shard = strings.Join(parts, tg.Options.Delimiter)
+		default:
+			t.Errorf("unexpected target %s", fp)
+		}
+	}
+	if parallelism != n || shard != "$(JOB_COMPLETION_INDEX)/"+n {
+		t.Fatalf("after the replacements: parallelism %q, --shard %q; want %s and $(JOB_COMPLETION_INDEX)/%s", parallelism, shard, n, n)
+	}
+	for i := 0; i < atoi(t, n); i++ {
+		if sh, err := publish.ParseShard(strings.Replace(shard, "$(JOB_COMPLETION_INDEX)", strconv.Itoa(i), 1)); err != nil || sh.Count != atoi(t, n) {
+			t.Errorf("shard %d: %v %+v", i, err, sh)
+		}
+	}
+}
+
+func atoi(t *testing.T, s string) int {
+	t.Helper()
+	n, err := strconv.Atoi(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return n
 }
 
 // checkConfigVolume: --config names a file in a mounted ConfigMap, and that

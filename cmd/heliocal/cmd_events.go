@@ -231,14 +231,6 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 		return err
 	}
 	loc := site.TimeZone.Location
-	if site.ZoneInferred {
-		how, choose := "the configuration gives site "+site.ID+" no timezone", "add timezone: to the site to choose another"
-		if o.site == "" && o.feed == "" {
-			how, choose = "no --tz given", "give --tz to choose another"
-		}
-		fmt.Fprintf(g.stderr, "heliocal: %s: using %s, the zone in force at %.4f, %.4f (%s)\n",
-			how, config.DescribeZone(loc, o.now), site.Latitude, site.Longitude, choose)
-	}
 	today := o.now.In(loc)
 	from := time.Date(today.Year(), today.Month(), today.Day(), 0, 0, 0, 0, time.UTC)
 	if o.from != "" {
@@ -254,6 +246,14 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 	}
 	if err := checkRange(from, to); err != nil {
 		return err
+	}
+	if site.ZoneInferred { // named with its offset on the first date listed
+		how, choose := "the configuration gives site "+site.ID+" no timezone", "add timezone: to the site to choose another"
+		if o.site == "" && o.feed == "" {
+			how, choose = "no --tz given", "give --tz to choose another"
+		}
+		fmt.Fprintf(g.stderr, "heliocal: %s: using %s, the zone in force at %.4f, %.4f (%s)\n", how,
+			config.DescribeZone(loc, time.Date(from.Year(), from.Month(), from.Day(), 12, 0, 0, 0, loc)), site.Latitude, site.Longitude, choose)
 	}
 	var specs []config.KindSpec
 	if o.feedSpecs != nil && !o.kindsSet {

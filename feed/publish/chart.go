@@ -202,21 +202,35 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 	}
 	days := c.Days
 	first, last := days[0].Date, days[len(days)-1].Date
-	v := &chartView{ID: "chart-" + id}
-	if first.Year() == last.Year() {
-		v.Title = fmt.Sprintf("Day length and twilight at %s, %d", siteName, first.Year())
-	} else {
-		v.Title = fmt.Sprintf("Day length and twilight at %s, %s to %s", siteName,
-			first.Format("2 Jan 2006"), last.Format("2 Jan 2006"))
+	return &chartView{
+		ID:    "chart-" + id,
+		Title: chartTitle(siteName, first, last),
+		Bands: []bandView{
+			{"astro", bandPoints(days, func(d ChartDay) time.Duration { return d.Astronomical })},
+			{"naut", bandPoints(days, func(d ChartDay) time.Duration { return d.Nautical })},
+			{"civil", bandPoints(days, func(d ChartDay) time.Duration { return d.Civil })},
+			{"day", bandPoints(days, func(d ChartDay) time.Duration { return d.Daylight })},
+		},
+		Summary: chartSummary(days),
+		Months:  monthTicks(days),
+		Hours:   hourTicks(),
+		Marks:   markViews(c.Marks, first, last),
+		Levels:  levelViews(c.Levels),
 	}
-	v.Bands = []bandView{
-		{"astro", bandPoints(days, func(d ChartDay) time.Duration { return d.Astronomical })},
-		{"naut", bandPoints(days, func(d ChartDay) time.Duration { return d.Nautical })},
-		{"civil", bandPoints(days, func(d ChartDay) time.Duration { return d.Civil })},
-		{"day", bandPoints(days, func(d ChartDay) time.Duration { return d.Daylight })},
-	}
+}
 
-	// Summary: the extremes and the polar days.
+// chartTitle names the site and the year (or the dates) the chart covers.
+func chartTitle(siteName string, first, last time.Time) string {
+	if first.Year() == last.Year() {
+		return fmt.Sprintf("Day length and twilight at %s, %d", siteName, first.Year())
+	}
+	return fmt.Sprintf("Day length and twilight at %s, %s to %s", siteName,
+		first.Format("2 Jan 2006"), last.Format("2 Jan 2006"))
+}
+
+// chartSummary says in words what the chart shows: the shortest and the
+// longest daylight, and how many days the Sun stays up or down all day.
+func chartSummary(days []ChartDay) string {
 	lo, hi := 0, 0
 	polarDay, polarNight := 0, 0
 	for i, d := range days {
@@ -242,12 +256,15 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 	if polarNight > 0 {
 		s += fmt.Sprintf(" It stays down all day on %d %s.", polarNight, plural(polarNight, "day", "days"))
 	}
-	v.Summary = s
+	return s
+}
 
+// monthTicks puts a tick at each first of the month (and at the start),
+// labelled when at least 12 days of that month are in the chart.
+func monthTicks(days []ChartDay) []tickView {
+	var ticks []tickView
 	step := float64(plotW) / float64(len(days))
 	for i, d := range days {
-		// A tick at each first of the month (and at the start), labelled
-		// when at least 12 days of that month are in the chart.
 		if d.Date.Day() != 1 && i != 0 {
 			continue
 		}
@@ -258,16 +275,31 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 			tv.Label = d.Date.Format("Jan")
 		}
 		if d.Date.Day() == 1 || tv.Label != "" {
-			v.Months = append(v.Months, tv)
+			ticks = append(ticks, tv)
 		}
 	}
+	return ticks
+}
+
+// hourTicks marks the day-length axis every 6 hours.
+func hourTicks() []tickView {
+	var ticks []tickView
 	for h := 0; h <= 24; h += 6 {
 		y := yOf(float64(h))
-		v.Hours = append(v.Hours, tickView{Y: num(y), TX: num(plotLeft - 6), TY: num(y + 4), Label: strconv.Itoa(h) + " h"})
+		ticks = append(ticks, tickView{Y: num(y), TX: num(plotLeft - 6), TY: num(y + 4), Label: strconv.Itoa(h) + " h"})
 	}
+	return ticks
+}
+
+// markViews places the marks within the dates first..last as vertical
+// lines. Each label stays inside the chart, on the first of two rows where
+// it does not run into the previous label; with no room, the line stays and
+// the label is only in its tooltip and the caption.
+func markViews(marks []Mark, first, last time.Time) []markView {
 	span := last.Add(24 * time.Hour).Sub(first)
-	marks := append([]Mark(nil), c.Marks...)
+	marks = append([]Mark(nil), marks...)
 	sort.SliceStable(marks, func(i, j int) bool { return marks[i].At.Before(marks[j].At) })
+	var views []markView
 	rowEnd := [2]float64{math.Inf(-1), math.Inf(-1)}
 	for _, m := range marks {
 		off := m.At.Sub(first)
@@ -275,9 +307,6 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 			continue
 		}
 		x := plotLeft + float64(plotW)*off.Hours()/span.Hours()
-		// Keep the label inside the chart, on the first of two rows where
-		// it does not run into the previous label; with no room, the line
-		// stays and the label is only in its tooltip and the caption.
 		w := 5.6 * float64(len([]rune(m.Label))) // about 5.6 units a character at 10 px
 		anchor, left := "middle", x-w/2
 		switch {
@@ -295,18 +324,24 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 				break
 			}
 		}
-		v.Marks = append(v.Marks, mv)
+		views = append(views, mv)
 	}
-	for _, lv := range c.Levels {
-		h := clipHours(lv.Length)
-		y := yOf(h)
+	return views
+}
+
+// levelViews draws each level as a horizontal line with its label (the
+// day length itself when it has none).
+func levelViews(levels []Level) []levelView {
+	var views []levelView
+	for _, lv := range levels {
+		y := yOf(clipHours(lv.Length))
 		label := lv.Label
 		if label == "" {
 			label = formatHours(lv.Length)
 		}
-		v.Levels = append(v.Levels, levelView{Y: num(y), TX: num(plotLeft + plotW - 4), TY: num(y - 3), Label: label})
+		views = append(views, levelView{Y: num(y), TX: num(plotLeft + plotW - 4), TY: num(y - 3), Label: label})
 	}
-	return v
+	return views
 }
 
 // formatHours writes a day length as "12 h" or "14 h 30 min".

@@ -445,6 +445,14 @@ func decodeHook() mapstructure.DecodeHookFunc {
 				return nil, &valueError{Value: fmt.Sprint(x), Msg: "a duration needs a unit", Hint: fmt.Sprintf(`write e.g. "%vm" for minutes or "%vh" for hours`, x, x)}
 			}
 		}
+		if t, ok := data.(time.Time); ok && to.Kind() == reflect.String {
+			// YAML reads an unquoted 2027-06-12 as a timestamp: give
+			// text keys (a plan's date) the date as written
+			if t.Equal(civilDate(t)) {
+				return t.Format(time.DateOnly), nil
+			}
+			return t.Format(time.RFC3339), nil
+		}
 		if to.Kind() == reflect.Int && (from.Kind() == reflect.Float64 || from.Kind() == reflect.Float32) {
 			f := reflect.ValueOf(data).Float()
 			if f != math.Trunc(f) || math.Abs(f) > 1<<53 {
@@ -773,4 +781,9 @@ func Resolve(flagPath string, env LookupEnv) (*Config, Source, error) {
 	}
 	c, err := ParseEnv(bytes.NewReader(demoYAML), "yaml", env)
 	return c, Source{Demo: true}, err
+}
+
+// civilDate is t's date at 00:00 in t's location.
+func civilDate(t time.Time) time.Time {
+	return time.Date(t.Year(), t.Month(), t.Day(), 0, 0, 0, 0, t.Location())
 }

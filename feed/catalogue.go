@@ -345,7 +345,7 @@ func (w *entryWriter) note(n Note) {
 		AllDay:      true,
 		Date:        n.Date,
 		Alarm:       w.alarm,
-		Facts:       Facts{Note: true, State: n.State, Until: n.Until},
+		Facts:       Facts{Note: true, State: n.State, Until: n.Until, DayLength: n.DayLength},
 	})
 }
 

@@ -661,3 +661,41 @@ func TestNightDates(t *testing.T) {
 		t.Errorf("NightOf: %q", got)
 	}
 }
+
+// A photoperiod threshold never crossed in the window gets one note saying
+// so, with the longest day. At 9.9° N the longest day is 12 h 42 min on the
+// June solstice and the shortest 11 h 33 min on the December solstice: the
+// standard sunrise equation (Meeus, Astronomical Algorithms, ch. 15:
+// cos H₀ = (sin −0.8333° − sin φ sin δ) / (cos φ cos δ), δ = ±23.44°) gives
+// H₀ = 95.27° (12.70 h) and 86.59° (11.55 h).
+func TestPhotoperiodNeverReached(t *testing.T) {
+	s := site(t, "tropic", 9.9, -84.1, "America/Costa_Rica")
+	sk := sky(t, "2027-01-01", "2027-12-31")
+	events, notes, err := sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "photoperiod:14h", "photoperiod:10h"), date("2027-01-01"), date("2027-12-31"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(events) != 0 || len(notes) != 2 {
+		t.Fatalf("%d events, %d notes; want none and two", len(events), len(notes))
+	}
+	want := map[string]string{
+		"photoperiod:14h": "Day length never reaches 14 h here (longest 12 h 42 min, 21 June)",
+		"photoperiod:10h": "Day length never falls below 10 h here (shortest 11 h 33 min, 21 December)",
+	}
+	for _, n := range notes {
+		if got := NotReachedText(n); !strings.HasPrefix(got, want[n.Kind.String()]) || n.Date != date("2027-01-01") {
+			t.Errorf("%s on %s: %q, want %q", n.Kind, n.Date.Format(time.DateOnly), got, want[n.Kind.String()])
+		}
+	}
+	// a shorter window says which dates
+	_, notes, _ = sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "photoperiod:14h"), date("2027-01-01"), date("2027-03-31"))
+	if len(notes) != 1 || !strings.HasPrefix(NotReachedText(notes[0]), "Day length stays below 14 h from 1 January to 31 March 2027 (longest 12 h ") ||
+		!strings.HasSuffix(NotReachedText(notes[0]), ", 31 March)") {
+		t.Errorf("notes %+v: %q", notes, NotReachedText(notes[0]))
+	}
+	// in the feed: one all-day entry
+	entries, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{{Kind: mustKinds(t, "photoperiod:14h")[0]}}, date("2027-01-01"), date("2027-12-31"))
+	if err != nil || len(entries) != 1 || !entries[0].AllDay || !strings.HasPrefix(entries[0].Title, "Day length never reaches 14 h here") {
+		t.Errorf("entries %+v, %v", entries, err)
+	}
+}

@@ -3,6 +3,7 @@ package feed
 import (
 	"context"
 	"fmt"
+	"slices"
 	"time"
 
 	"heliocal/config"
@@ -38,6 +39,17 @@ func (s *Sky) EventChunks(ctx context.Context, p Place, specs []config.KindSpec,
 		return fmt.Errorf("feed: date range ends (%s) before it starts (%s)",
 			last.Format(time.DateOnly), first.Format(time.DateOnly))
 	}
+	// A photoperiod threshold that the whole range never crosses gets one
+	// note for the range, not one per chunk.
+	var whole []Note
+	chunked := last.After(first.AddDate(0, 0, ChunkDays-1))
+	if ps := photoperiods(specs); chunked && len(ps) > 0 {
+		_, notes, err := s.eventsFor(ctx, p, ps, first, last, &buffers{})
+		if err != nil {
+			return err
+		}
+		whole = notes
+	}
 	buf := &buffers{}
 	for d := first; !d.After(last); d = d.AddDate(0, 0, ChunkDays) {
 		end := d.AddDate(0, 0, ChunkDays-1)
@@ -48,9 +60,26 @@ func (s *Sky) EventChunks(ctx context.Context, p Place, specs []config.KindSpec,
 		if err != nil {
 			return err
 		}
+		if chunked {
+			notes = slices.DeleteFunc(notes, func(n Note) bool { return n.Kind.Name == "photoperiod" })
+			if d.Equal(first) {
+				notes = append(whole, notes...)
+			}
+		}
 		if err := fn(Chunk{First: d, Last: end, Events: events, Notes: notes}); err != nil {
 			return err
 		}
 	}
 	return nil
+}
+
+// photoperiods returns the photoperiod kinds of specs.
+func photoperiods(specs []config.KindSpec) []config.KindSpec {
+	var out []config.KindSpec
+	for _, sp := range specs {
+		if sp.Kind.Name == "photoperiod" {
+			out = append(out, sp)
+		}
+	}
+	return out
 }

@@ -60,6 +60,13 @@ type Note struct {
 	// Until is, for a lighting note (no lamps needed), the first date on
 	// which lamps are needed again; zero when that is after the last date.
 	Until time.Time
+	// For a photoperiod threshold that no date of the window crosses (one
+	// note on the first date, AlwaysBelow: never reached, AlwaysAbove:
+	// never fallen below): the longest (or shortest) day length of the
+	// window, its date, and the window's last date.
+	DayLength   time.Duration
+	ExtremeDate time.Time
+	Last        time.Time
 }
 
 // Place is where events are computed: an observer and the zone whose local
@@ -783,6 +790,7 @@ func (c *collector) photoperiod(k config.Kind) error {
 	if err := c.dayLengths(); err != nil {
 		return err
 	}
+	crossed := false
 	for i := 1; i < len(c.lengths); i++ {
 		prev, cur := c.lengths[i-1], c.lengths[i]
 		var dir astro.Direction
@@ -797,8 +805,30 @@ func (c *collector) photoperiod(k config.Kind) error {
 		d := c.first.AddDate(0, 0, i-1)
 		c.events = append(c.events, Event{Kind: k, Start: midnight(d, c.p.Location), Date: d,
 			Direction: dir, DayLength: cur, DayChange: cur - prev})
+		crossed = true
+	}
+	if !crossed {
+		c.notes = append(c.notes, c.notReached(k))
 	}
 	return nil
+}
+
+// notReached is the one note of a window whose day length never crosses
+// the photoperiod k: on the window's first date, with the longest day
+// length (when it stays below) or the shortest (when it stays above).
+func (c *collector) notReached(k config.Kind) Note {
+	n := Note{Kind: k, Date: c.first, State: astro.AlwaysBelow, Family: "never:" + k.String(), Last: c.last}
+	above := c.lengths[1] >= k.DayLength
+	if above {
+		n.State = astro.AlwaysAbove
+	}
+	for i := 1; i < len(c.lengths); i++ {
+		l := c.lengths[i]
+		if n.ExtremeDate.IsZero() || (!above && l > n.DayLength) || (above && l < n.DayLength) {
+			n.DayLength, n.ExtremeDate = l, c.first.AddDate(0, 0, i-1)
+		}
+	}
+	return n
 }
 
 // summaryEvents adds one event per local date for daily-summary, at the

@@ -455,6 +455,10 @@ func thousands(x float64) string {
 func describeNote(s *siteInfo, n Note) (string, string) {
 	above := n.State == astro.AlwaysAbove
 	var title, desc string
+	if n.Kind.Name == "photoperiod" {
+		t := NotReachedText(n)
+		return t, fmt.Sprintf("%s, %s: no date of this calendar crosses it.", t, s.where)
+	}
 	if n.State == astro.Crosses && !n.Kind.IsMoon() {
 		title, desc = noEventToday(n.Kind)
 		return title, fmt.Sprintf("%s at %s on %s.", desc, s.where, n.Date.Format("Monday 2 January 2006"))
@@ -504,6 +508,41 @@ func describeNote(s *siteInfo, n Note) (string, string) {
 		}
 	}
 	return title, fmt.Sprintf("%s at %s on %s.", desc, s.where, n.Date.Format("Monday 2 January 2006"))
+}
+
+// NotReachedText says that a photoperiod threshold is not crossed in a
+// window (a note from the photoperiod kind with DayLength and ExtremeDate
+// set): "Day length never reaches 14 h here (longest 12 h 42 min, 21 June)"
+// over a year or more, "Day length stays below 14 h from 1 January to 31
+// March 2027 (longest …)" over a shorter window.
+func NotReachedText(n Note) string {
+	target := shortHours(n.Kind.DayLength)
+	extreme := "longest"
+	verb, span := "never reaches", "never reaches"
+	if n.State == astro.AlwaysAbove {
+		extreme, verb, span = "shortest", "never falls below", "stays at or above"
+	} else {
+		span = "stays below"
+	}
+	when := fmt.Sprintf("%s %s here", verb, target)
+	if n.Last.Sub(n.Date) < 364*24*time.Hour {
+		when = fmt.Sprintf("%s %s from %s to %s", span, target, n.Date.Format("2 January"), n.Last.Format("2 January 2006"))
+	}
+	return fmt.Sprintf("Day length %s (%s %s, %s)", when, extreme, hmText(n.DayLength), n.ExtremeDate.Format("2 January"))
+}
+
+// shortHours writes a duration as "14 h" or "14 h 30 min".
+func shortHours(d time.Duration) string {
+	h, m := int(d/time.Hour), int(d%time.Hour/time.Minute)
+	if m == 0 {
+		return fmt.Sprintf("%d h", h)
+	}
+	return fmt.Sprintf("%d h %d min", h, m)
+}
+
+// hmText writes a day length as "12 h 42 min", rounded to the minute.
+func hmText(d time.Duration) string {
+	return shortHours(d.Round(time.Minute))
 }
 
 // noEventToday gives the title and the explanation of a date on which a

@@ -180,6 +180,11 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		over := limit > 0 && len(data) > limit
 		r.Feeds = append(r.Feeds, checkFeed{ID: f.ID, Site: f.Site, Kinds: kinds, Plans: len(f.Plans), DaysBack: f.DaysBack, DaysAhead: f.DaysAhead,
 			Events: len(cal.Entries), Bytes: len(data), Oversize: over})
+		for _, e := range cal.Entries {
+			if e.Facts.Note && strings.HasPrefix(e.Kind, "photoperiod:") {
+				r.Warnings = append(r.Warnings, fmt.Sprintf("feed %q: %s: %s; the feed shows only this note for it", f.ID, e.Kind, e.Title))
+			}
+		}
 		if over {
 			r.Warnings = append(r.Warnings, fmt.Sprintf("feed %q is %s, over service.max_feed_bytes (%s): some web calendars drop events from subscriptions this large; shorten days_back/days_ahead or split the kinds into several feeds", f.ID, size(len(data)), size(limit)))
 		}

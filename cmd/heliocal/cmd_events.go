@@ -333,6 +333,8 @@ type jsonNote struct {
 	Date  string `json:"date"`
 	State string `json:"state"`
 	Until string `json:"until,omitempty"` // lighting: the first date lamps are needed again
+	// photoperiod not crossed in the window: what the table says
+	Detail string `json:"detail,omitempty"`
 }
 
 type jsonSite struct {

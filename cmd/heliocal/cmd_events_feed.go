@@ -275,6 +275,9 @@ func writeEntriesTable(w io.Writer, s *config.Site, cal *feed.Calendar) error {
 // no lamps are needed.
 func toJSONNote(n feed.Note) jsonNote {
 	j := jsonNote{Kind: n.Kind.String(), Date: n.Date.Format(time.DateOnly), State: stateName(n.State)}
+	if n.Kind.Name == "photoperiod" {
+		j.Detail = feed.NotReachedText(n)
+	}
 	if n.Kind.Name == config.KindLighting {
 		j.State = "no-lamps-needed"
 		if !n.Until.IsZero() {
@@ -292,6 +295,9 @@ func noteText(n *feed.Note) string {
 			why = "the Moon is up and bright"
 		}
 		return "no dark sky on the " + feed.NightOf(n.Date) + ": " + why
+	}
+	if n.Kind.Name == "photoperiod" {
+		return feed.NotReachedText(*n)
 	}
 	if n.Kind.Name != config.KindLighting {
 		return stateText(n.State)

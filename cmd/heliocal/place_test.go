@@ -105,3 +105,23 @@ func TestServeLogsInferredZone(t *testing.T) {
 		t.Errorf("serve does not log the zone it took:\n%s", logs.String())
 	}
 }
+
+// A photoperiod the day never reaches at the site is a check warning, and
+// events says so once for the whole range (not once per computed chunk).
+func TestPhotoperiodNeverReached(t *testing.T) {
+	code, out, errOut := runCLI(t, "check", "--config", filepath.Join("..", "..", "testdata", "config", "photoperiod-never.yaml"))
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	if !strings.Contains(out+errOut, `warning: feed "nursery-lamps": photoperiod:14h: Day length never reaches 14 h here (longest 12 h 42 min,`) {
+		t.Errorf("check says nothing of the unreached photoperiod:\n%s\n%s", out, errOut)
+	}
+	code, out, errOut = runCLI(t, "events", "--lat", "9.9", "--lon", "-84.1", "--tz", "America/Costa_Rica",
+		"--from", "2027-01-01", "--to", "2028-12-31", "--kinds", "photoperiod:14h")
+	if code != 0 {
+		t.Fatalf("events: exit %d: %s", code, errOut)
+	}
+	if n := strings.Count(out, "Day length never reaches 14 h here"); n != 1 {
+		t.Errorf("events says it %d times over two years:\n%s", n, out)
+	}
+}

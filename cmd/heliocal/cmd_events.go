@@ -198,12 +198,16 @@ func feedPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 	return nil, fmt.Errorf("feed %q: site %q not found", f.ID, f.Site) // Validate prevents this
 }
 
-func parseDate(flag, v string, loc *time.Location) (time.Time, error) {
-	d, err := time.ParseInLocation(time.DateOnly, v, loc)
+// parseDate reads a calendar date. It is read as a date, not as the local
+// midnight that starts it: where the clocks skip midnight (America/Havana,
+// America/Santiago) that midnight does not exist and would fall on the day
+// before.
+func parseDate(flag, v string) (time.Time, error) {
+	d, err := time.Parse(time.DateOnly, v)
 	if err != nil {
 		return time.Time{}, badInput("%s: %q: not a date, use YYYY-MM-DD", flag, v)
 	}
-	return time.Date(d.Year(), d.Month(), d.Day(), 0, 0, 0, 0, time.UTC), nil
+	return d, nil
 }
 
 func parseKinds(list string) ([]config.Kind, error) {
@@ -234,13 +238,13 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 	today := o.now.In(loc)
 	from := time.Date(today.Year(), today.Month(), today.Day(), 0, 0, 0, 0, time.UTC)
 	if o.from != "" {
-		if from, err = parseDate("--from", o.from, loc); err != nil {
+		if from, err = parseDate("--from", o.from); err != nil {
 			return err
 		}
 	}
 	to := from.AddDate(0, 0, 6)
 	if o.to != "" {
-		if to, err = parseDate("--to", o.to, loc); err != nil {
+		if to, err = parseDate("--to", o.to); err != nil {
 			return err
 		}
 	}

@@ -57,9 +57,8 @@ func runEventsFeed(ctx context.Context, g *globals, o *eventsOptions) error {
 			site = &cfg.Sites[i]
 		}
 	}
-	loc := site.TimeZone.Location
 	if o.from != "" {
-		if first, err = parseDate("--from", o.from, loc); err != nil {
+		if first, err = parseDate("--from", o.from); err != nil {
 			return err
 		}
 		if o.to == "" {
@@ -67,7 +66,7 @@ func runEventsFeed(ctx context.Context, g *globals, o *eventsOptions) error {
 		}
 	}
 	if o.to != "" {
-		if last, err = parseDate("--to", o.to, loc); err != nil {
+		if last, err = parseDate("--to", o.to); err != nil {
 			return err
 		}
 	}

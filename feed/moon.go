@@ -113,7 +113,13 @@ func (c *collector) moonRiseSet(k config.Kind) error {
 				// so about once a month a date has none
 				state = 0
 			}
-			c.notes = append(c.notes, Note{Kind: k, Date: date, State: state, Family: "moon-horizon:" + k.Name})
+			// "No moonrise today" and "No moonset today" are two notes; a
+			// Moon up (or down) all day is one, as for the Sun
+			family := "moon-horizon"
+			if state != astro.AlwaysAbove && state != astro.AlwaysBelow {
+				family += ":" + k.Name
+			}
+			c.notes = append(c.notes, Note{Kind: k, Date: date, State: state, Family: family})
 			continue
 		}
 		for _, t := range ts {

@@ -85,69 +85,91 @@ func build(cfg *config.Config, now time.Time, l layout) ([]publish.Source, publi
 func chartsFor(cfg *config.Config, now time.Time) func(context.Context, feed.Site) (*publish.SiteChart, error) {
 	// One ephemeris serves every site's chart: a site's local "today" is
 	// within a day of the UTC one, and the Sky keeps two days of margin.
-	var once sync.Once
-	var sky *feed.Sky
-	var skyErr error
-	return func(_ context.Context, fs feed.Site) (*publish.SiteChart, error) {
-		var site *config.Site
-		for i := range cfg.Sites {
-			if cfg.Sites[i].ID == fs.ID {
-				site = &cfg.Sites[i]
-			}
-		}
-		if site == nil {
+	sharedSky := sync.OnceValues(func() (*feed.Sky, error) {
+		u := now.UTC()
+		today := time.Date(u.Year(), u.Month(), u.Day(), 0, 0, 0, 0, time.UTC)
+		return feed.NewSky(today.AddDate(0, 0, -1), today.AddDate(1, 0, 1))
+	})
+	return func(ctx context.Context, fs feed.Site) (*publish.SiteChart, error) {
+		site, ok := cfg.Site(fs.ID)
+		if !ok {
 			return nil, fmt.Errorf("chart: no site %q", fs.ID)
 		}
-		loc := site.TimeZone.Location
-		t := now.In(loc)
+		t := now.In(site.TimeZone.Location)
 		first := time.Date(t.Year(), t.Month(), t.Day(), 0, 0, 0, 0, time.UTC)
 		last := first.AddDate(1, 0, -1)
-		once.Do(func() {
-			u := now.UTC()
-			today := time.Date(u.Year(), u.Month(), u.Day(), 0, 0, 0, 0, time.UTC)
-			sky, skyErr = feed.NewSky(today.AddDate(0, 0, -1), today.AddDate(1, 0, 1))
-		})
-		if skyErr != nil {
-			return nil, skyErr
-		}
-		place := feed.PlaceOf(site)
-		profiles, err := sky.Profiles(place, first, last)
+		sky, err := sharedSky()
 		if err != nil {
 			return nil, err
 		}
+		place := feed.PlaceOf(&site)
 		chart := &publish.SiteChart{}
-		for _, p := range profiles {
-			chart.Days = append(chart.Days, publish.ChartDay{Date: p.Date, Daylight: p.Daylight,
-				Civil: p.Civil, Nautical: p.Nautical, Astronomical: p.Astronomical})
+		if chart.Days, err = chartDays(sky, place, first, last); err != nil {
+			return nil, err
 		}
-		var marks []config.Kind
-		seen := map[string]bool{}
-		for _, f := range cfg.Feeds {
-			if f.Site != site.ID {
-				continue
-			}
-			for _, ks := range f.Kinds {
-				k := ks.Kind
-				switch {
-				case k.Name == "photoperiod" && !seen[k.String()]:
-					chart.Levels = append(chart.Levels, publish.Level{Length: k.DayLength})
-				case k.IsYearly() && (!k.IsMoon() || k.Family() == config.FamilyEclipse) && !seen[k.String()]:
-					marks = append(marks, k)
-				}
-				seen[k.String()] = true
-			}
-		}
-		if len(marks) > 0 {
-			events, _, err := sky.Events(context.Background(), place, marks, first, last)
-			if err != nil {
-				return nil, err
-			}
-			for _, e := range events {
-				chart.Marks = append(chart.Marks, publish.Mark{At: e.Start, Label: markLabel(e)})
-			}
+		levels, marks := chartKinds(cfg, site.ID)
+		chart.Levels = levels
+		if chart.Marks, err = chartMarks(ctx, sky, place, marks, first, last); err != nil {
+			return nil, err
 		}
 		return chart, nil
 	}
+}
+
+// chartDays is the daylight and twilight of each local date first..last.
+func chartDays(sky *feed.Sky, place feed.Place, first, last time.Time) ([]publish.ChartDay, error) {
+	profiles, err := sky.Profiles(place, first, last)
+	if err != nil {
+		return nil, err
+	}
+	days := make([]publish.ChartDay, len(profiles))
+	for i, p := range profiles {
+		days[i] = publish.ChartDay{Date: p.Date, Daylight: p.Daylight, Civil: p.Civil, Nautical: p.Nautical, Astronomical: p.Astronomical}
+	}
+	return days, nil
+}
+
+// chartKinds collects, from every feed of the site, the photoperiod
+// thresholds (drawn as levels) and the yearly kinds drawn as marks: the
+// seasons, cross-quarter days, apsides and eclipses (not the Moon's phases,
+// a dozen lines a year). Each kind counts once.
+func chartKinds(cfg *config.Config, siteID string) ([]publish.Level, []config.Kind) {
+	var levels []publish.Level
+	var marks []config.Kind
+	seen := map[string]bool{}
+	for _, f := range cfg.Feeds {
+		if f.Site != siteID {
+			continue
+		}
+		for _, ks := range f.Kinds {
+			k := ks.Kind
+			switch {
+			case seen[k.String()]:
+			case k.Name == "photoperiod":
+				levels = append(levels, publish.Level{Length: k.DayLength})
+			case k.IsYearly() && (!k.IsMoon() || k.Family() == config.FamilyEclipse):
+				marks = append(marks, k)
+			}
+			seen[k.String()] = true
+		}
+	}
+	return levels, marks
+}
+
+// chartMarks computes the events of the mark kinds over first..last.
+func chartMarks(ctx context.Context, sky *feed.Sky, place feed.Place, kinds []config.Kind, first, last time.Time) ([]publish.Mark, error) {
+	if len(kinds) == 0 {
+		return nil, nil
+	}
+	events, _, err := sky.Events(ctx, place, kinds, first, last)
+	if err != nil {
+		return nil, err
+	}
+	marks := make([]publish.Mark, len(events))
+	for i, e := range events {
+		marks[i] = publish.Mark{At: e.Start, Label: markLabel(e)}
+	}
+	return marks, nil
 }
 
 func markLabel(e feed.Event) string {

@@ -11,6 +11,7 @@ import (
 	"time"
 	"unicode/utf8"
 
+	"heliocal/astro"
 	"heliocal/config"
 	"heliocal/feed"
 )
@@ -62,7 +63,7 @@ func (j *jsonSink) chunk(c feed.Chunk) error {
 		j.buf = append(j.buf, "{\n  \"events\": ["...)
 	}
 	loc := j.site.TimeZone.Location
-	next := time.Date(c.Last.Year(), c.Last.Month(), c.Last.Day()+1, 0, 0, 0, 0, loc)
+	next := astro.DateStart(loc, c.Last.Year(), c.Last.Month(), c.Last.Day()+1)
 	evs := c.Events
 	if len(j.held) > 0 {
 		j.merged = mergeByStart(j.merged[:0], j.held, evs)

@@ -5,7 +5,6 @@ import (
 	"fmt"
 	"math"
 	"sort"
-	"strconv"
 	"strings"
 	"time"
 
@@ -413,14 +412,6 @@ func hasAzimuth(e feed.Event) bool {
 		return true
 	}
 	return false
-}
-
-// azimuthCell is the CSV cell of the azimuth, empty where it does not apply.
-func azimuthCell(e feed.Event) string {
-	if !hasAzimuth(e) {
-		return ""
-	}
-	return strconv.FormatFloat(math.Round(e.Azimuth*100)/100, 'f', 2, 64)
 }
 
 // direction names which way an event crosses its threshold, as every

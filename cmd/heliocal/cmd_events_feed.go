@@ -308,40 +308,63 @@ func noteText(n *feed.Note) string {
 }
 
 // eventsCSVHeader is the header row of the events as CSV: every field of
-// the JSON form, the instants both in UTC and in local time with a numeric
+// the JSON form (a test holds it complete; JSON's start and end are
+// start_utc and end_utc), and the instants in local time with a numeric
 // offset.
 var eventsCSVHeader = []string{"date", "kind", "start_utc", "end_utc", "direction", "start_local", "end_local", "state",
 	"until", "part", "altitude_deg", "distance_au", "day_length_s", "day_change_s", "illuminated", "lamp_s",
-	"target_not_reached", "uncertainty_s", "azimuth_deg"}
+	"target_not_reached", "uncertainty_s", "max", "type", "magnitude", "obscuration", "umbral_magnitude",
+	"partial_start", "partial_end", "total_start", "total_end", "azimuth_deg"}
 
 // writeEventsCSVRows writes the rows of events and notes (one chunk of
 // dates) under eventsCSVHeader, by local date, notes first on their date.
 func writeEventsCSVRows(cw *csv.Writer, loc *time.Location, events []feed.Event, notes []feed.Note) error {
 	for _, r := range mergeRows(events, notes) {
+		var v any
+		local := map[string]string{}
 		if r.note != nil {
-			n := toJSONNote(*r.note)
-			if err := cw.Write([]string{n.Date, n.Kind, "", "", "", "", "", n.State, n.Until, "", "", "", "", "", "", "", "", "", ""}); err != nil {
-				return err
+			v = toJSONNote(*r.note)
+		} else {
+			e := r.event
+			v = toJSONEvent(*e)
+			if !e.DateOnly() {
+				local["start_local"] = localStamp(e.Start, loc)
 			}
-			continue
+			if !e.End.IsZero() {
+				local["end_local"] = localStamp(e.End, loc)
+			}
 		}
-		e := r.event
-		j := toJSONEvent(*e)
-		startLocal, endLocal := "", ""
-		if !e.DateOnly() {
-			startLocal = localStamp(e.Start, loc)
-		}
-		if !e.End.IsZero() {
-			endLocal = localStamp(e.End, loc)
-		}
-		err := cw.Write([]string{j.Date, j.Kind, j.Start, j.End, j.Direction, startLocal, endLocal, "",
-			"", j.Part, num(j.Altitude), num(j.Distance), num(j.DayLength), num(j.DayChange), num(j.Lit), num(j.Lamp),
-			yes(j.Short), num(j.Uncertainty), azimuthCell(*e)})
-		if err != nil {
+		if err := cw.Write(csvRow(v, local)); err != nil {
 			return err
 		}
 	}
 	return nil
+}
+
+// csvRow writes the fields of a JSON object in the order of
+// eventsCSVHeader: text as is, numbers and true as JSON writes them.
+func csvRow(v any, local map[string]string) []string {
+	b, _ := json.Marshal(v)
+	var m map[string]json.RawMessage
+	_ = json.Unmarshal(b, &m)
+	row := make([]string, len(eventsCSVHeader))
+	for i, c := range eventsCSVHeader {
+		if l, ok := local[c]; ok {
+			row[i] = l
+			continue
+		}
+		raw, ok := m[strings.TrimSuffix(c, "_utc")]
+		if !ok {
+			continue
+		}
+		var str string
+		if json.Unmarshal(raw, &str) == nil {
+			row[i] = str
+		} else if string(raw) != "false" && string(raw) != "null" {
+			row[i] = string(raw)
+		}
+	}
+	return row
 }
 
 // writeEventsICS writes the events of a query as a one-off iCalendar file,

@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"os"
 	"path/filepath"
+	"reflect"
 	"strings"
 	"testing"
 	"time"
@@ -206,6 +207,25 @@ func TestEventsCSVLocalTimes(t *testing.T) {
 		for i, h := range rows[0] {
 			if strings.HasSuffix(h, "_local") && !strings.HasSuffix(r[i], "+01:00") {
 				t.Errorf("%s %q", h, r[i])
+			}
+		}
+	}
+}
+
+// Every field of the JSON form of events and notes has its CSV column.
+func TestEventsCSVHasEveryJSONField(t *testing.T) {
+	cols := map[string]bool{}
+	for _, c := range eventsCSVHeader {
+		cols[strings.TrimSuffix(c, "_utc")] = true
+	}
+	for _, typ := range []reflect.Type{reflect.TypeFor[jsonEvent](), reflect.TypeFor[jsonEclipse](), reflect.TypeFor[jsonNote]()} {
+		for i := range typ.NumField() {
+			name, _, _ := strings.Cut(typ.Field(i).Tag.Get("json"), ",")
+			if name == "" || name == "-" {
+				continue // the embedded eclipse fields, checked on their own
+			}
+			if !cols[name] {
+				t.Errorf("JSON field %q of %s has no CSV column", name, typ.Name())
 			}
 		}
 	}

@@ -65,7 +65,7 @@ type Span struct {
 
 // Night is the dark-sky windows of one night.
 type Night struct {
-	// Date is local midnight at the start of the evening's date; the night
+	// Date is the first instant of the evening's date (DateStart); the night
 	// runs from noon of Date to noon of the next date (local time).
 	Date    time.Time
 	Windows []Span     // dark windows in order; empty unless State is DarkNight

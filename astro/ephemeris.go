@@ -345,7 +345,7 @@ func (s State) String() string {
 
 // Day is the Sun's crossings of one threshold during one local date.
 type Day struct {
-	Date    time.Time   // local midnight (start of the date) in the location asked for
+	Date    time.Time   // first instant of the date in the location asked for: local midnight, or the clock change where midnight is skipped (DateStart)
 	Rising  []time.Time // upward crossings within the date, in order (UTC)
 	Setting []time.Time // downward crossings within the date, in order (UTC)
 	State   State       // Crosses, or AlwaysAbove/AlwaysBelow when the date has no crossing at all

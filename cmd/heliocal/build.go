@@ -240,8 +240,21 @@ func adhocFeed(l layout, refresh time.Duration) serve.AdhocFunc {
 // each request from current, so that a reloaded base_url or schedule
 // applies at once.
 func adhocFeedFrom(current func() adhocSettings) serve.AdhocFunc {
-	skies := &skyCache{}
+	calendar := adhocCalendarFrom(current)
 	return func(ctx context.Context, q serve.AdhocQuery) ([]byte, error) {
+		cal, err := calendar(ctx, q)
+		if err != nil {
+			return nil, err
+		}
+		return ical.Marshal(cal, ical.Options{Version: versionString()})
+	}
+}
+
+// adhocCalendarFrom computes the calendar of a validated ad-hoc query: the
+// ad-hoc feeds and the builder's preview both come from it.
+func adhocCalendarFrom(current func() adhocSettings) serve.PreviewFunc {
+	skies := &skyCache{}
+	return func(ctx context.Context, q serve.AdhocQuery) (*feed.Calendar, error) {
 		set := current()
 		l, refresh := set.layout, set.refresh
 		first := q.Start
@@ -281,6 +294,6 @@ func adhocFeedFrom(current func() adhocSettings) serve.AdhocFunc {
 		if l.base != "" {
 			cal.URL = l.base + strings.TrimPrefix(serve.AdhocPath, "/") + "?" + q.String()
 		}
-		return ical.Marshal(cal, ical.Options{Version: versionString()})
+		return cal, nil
 	}
 }

@@ -149,6 +149,7 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 		Version:           v.Version,
 		Revision:          v.Revision,
 		Adhoc:             adhocFeedFrom(func() adhocSettings { return *adhoc.Load() }),
+		Preview:           adhocCalendarFrom(func() adhocSettings { return *adhoc.Load() }),
 		AdhocDefaultKinds: []string{"sunrise", "sunset", "civil-dawn", "civil-dusk"},
 		AdhocMaxBytes:     cfg.Service.MaxFeedBytes,
 		Schedule:          cfg.Service.Refresh,

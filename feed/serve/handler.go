@@ -87,6 +87,14 @@ func (s *Server) newHandler() http.Handler {
 			s.serveAdhoc(rec, r)
 		case routeFeeds:
 			s.serveFeedsJSON(rec, r)
+		case routeIndex:
+			if name == "/" && s.opts.Preview != nil {
+				s.serveHome(rec, r)
+			} else {
+				s.serveBundleFile(rec, r, "index.html")
+			}
+		case routePage, routePreview:
+			s.serveBuilder(rec, r, route, name)
 		default:
 			s.serveBundleFile(rec, r, name)
 		}
@@ -95,8 +103,13 @@ func (s *Server) newHandler() http.Handler {
 
 // routeOf maps a path to its route and, for bundle files, the file name.
 func routeOf(p string) (route, name string) {
+	if route, ok := builderRoute(p); ok {
+		return route, p
+	}
 	switch p {
-	case "/", "/index.html":
+	case "/":
+		return routeIndex, "/" // the builder page when it is on, else index.html
+	case "/index.html":
 		return routeIndex, "index.html"
 	case "/feeds.json":
 		return routeFeeds, "feeds.json"

@@ -20,10 +20,12 @@ const (
 	routeHealth  = "healthz"
 	routeMetrics = "metrics"
 	routeAdhoc   = "adhoc"
+	routePage    = "page"    // the builder, its files and the /at table
+	routePreview = "preview" // /at.json
 	routeOther   = "other"
 )
 
-var routes = []string{routeIndex, routeFeed, routeFeeds, routeHealth, routeMetrics, routeAdhoc, routeOther}
+var routes = []string{routeIndex, routeFeed, routeFeeds, routeHealth, routeMetrics, routeAdhoc, routePage, routePreview, routeOther}
 
 // Refresh triggers, the values of the "trigger" label.
 const (

@@ -108,6 +108,15 @@ type Options struct {
 	BaseURL        string
 	TrustedProxies []string
 
+	// Preview computes the calendar of an ad-hoc query for the builder page
+	// (/), its preview (/at.json) and the day-by-day table (/at); nil turns
+	// them off: / is then the bundle's index.html. NoBuilder leaves the
+	// builder off the page while keeping the preview and table.
+	Preview   PreviewFunc
+	NoBuilder bool
+	// Page is what the builder page shows beside the feeds.
+	Page PageInfo
+
 	// Adhoc renders an ad-hoc feed; nil turns the ad-hoc route off (404).
 	Adhoc AdhocFunc
 	// ParseKind validates one event kind of the ad-hoc "kinds" parameter

@@ -1,0 +1,323 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"encoding/json"
+	"fmt"
+	"io"
+	"log/slog"
+	"net/http"
+	"net/http/httptest"
+	"net/url"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"slices"
+	"strconv"
+	"strings"
+	"testing"
+	"time"
+
+	ics "github.com/arran4/golang-ical"
+	"github.com/chromedp/cdproto/emulation"
+	"github.com/chromedp/chromedp"
+
+	"heliocal/config"
+	"heliocal/feed"
+	"heliocal/feed/serve"
+)
+
+// These tests drive a real browser (Debian's chromium) through the served
+// page. Screenshots go to $HELIOCAL_SCREENSHOTS when it is set (the
+// README's docs/img/*.png are made with HELIOCAL_SCREENSHOTS=$PWD/docs/img),
+// else to the test's temporary directory.
+
+// builderServer serves the demo configuration with the builder, as
+// `heliocal serve` does, on 127.0.0.1.
+func builderServer(t *testing.T) *httptest.Server {
+	t.Helper()
+	cfg, err := config.Load(filepath.Join("..", "..", "config", "demo.yaml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	set := func() adhocSettings { return adhocSettings{layout: newLayout(""), refresh: 24 * time.Hour} }
+	srv, err := serve.New(serve.Options{
+		Logger:            slog.New(slog.DiscardHandler),
+		Build:             serveBuild(cfg, ""),
+		Adhoc:             adhocFeedFrom(set),
+		Preview:           adhocCalendarFrom(set),
+		AdhocDefaultKinds: []string{"sunrise", "sunset", "civil-dawn", "civil-dusk"},
+		Page:              serve.PageInfo{Title: "Fernhollow sky calendars", Intro: "Sun and Moon times for the farm and anyone nearby.", Contact: "Questions: the farm office, office@fernhollow.example"},
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := srv.Refresh(t.Context()); err != nil {
+		t.Fatal(err)
+	}
+	ts := httptest.NewServer(srv.Handler())
+	t.Cleanup(ts.Close)
+	return ts
+}
+
+// browser starts a headless chromium with a fresh profile, or skips the
+// test when chromium is not installed.
+func browser(t *testing.T) context.Context {
+	t.Helper()
+	path, err := exec.LookPath("chromium")
+	if err != nil {
+		t.Skip("chromium is not installed (apt-get install chromium; .ci/run installs it)")
+	}
+	alloc, cancelAlloc := chromedp.NewExecAllocator(context.Background(),
+		chromedp.ExecPath(path),
+		chromedp.Headless,
+		chromedp.NoSandbox,
+		chromedp.DisableGPU,
+		chromedp.Flag("disable-quic", true),
+		chromedp.NoFirstRun,
+		chromedp.NoDefaultBrowserCheck,
+		chromedp.Flag("disable-background-networking", true),
+		chromedp.Flag("disable-component-update", true),
+		chromedp.Flag("disable-sync", true),
+		chromedp.UserDataDir(t.TempDir()),
+		chromedp.WindowSize(1280, 900),
+	)
+	ctx, cancelCtx := chromedp.NewContext(alloc)
+	ctx, cancelTimeout := context.WithTimeout(ctx, 90*time.Second)
+	t.Cleanup(func() { cancelTimeout(); cancelCtx(); cancelAlloc() })
+	if err := chromedp.Do(ctx); err != nil {
+		t.Fatalf("starting chromium: %v", err)
+	}
+	return ctx
+}
+
+func screenshotDir(t *testing.T) string {
+	if d := os.Getenv("HELIOCAL_SCREENSHOTS"); d != "" {
+		return d
+	}
+	return t.TempDir()
+}
+
+// shot saves a full-page screenshot (PNG).
+func shot(t *testing.T, ctx context.Context, name string) {
+	t.Helper()
+	save(t, ctx, name, chromedp.FullScreenshot(100))
+}
+
+// save saves the image an action takes.
+func save(t *testing.T, ctx context.Context, name string, take chromedp.Action[[]byte]) {
+	t.Helper()
+	png, err := chromedp.Run(ctx, take)
+	if err != nil {
+		t.Fatal(err)
+	}
+	p := filepath.Join(screenshotDir(t), name)
+	if err := os.WriteFile(p, png, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	t.Logf("screenshot %s (%d bytes)", p, len(png))
+}
+
+// layoutProblems lists what is wrong with the page at the current width:
+// horizontal scrolling, and inputs without a label.
+const layoutProblems = `(() => {
+  const out = [];
+  const w = document.documentElement.clientWidth;
+  if (document.documentElement.scrollWidth > w) out.push("scrolls horizontally: " + document.documentElement.scrollWidth + " > " + w);
+  for (const el of document.querySelectorAll("input, select, textarea, button")) {
+    if (el.type === "hidden") continue;
+    const named = (el.labels && el.labels.length > 0) || el.getAttribute("aria-label") || (el.tagName === "BUTTON" && el.textContent.trim());
+    if (!named) out.push("no label: " + (el.id || el.outerHTML.slice(0, 60)));
+  }
+  return out;
+})()`
+
+// previewRows reads the preview table: one "date kind time" line per entry.
+const previewRows = `[...document.querySelectorAll("#preview tr")].flatMap(tr => {
+  const date = tr.querySelector("th").textContent.split(" ")[1];
+  return [...tr.querySelectorAll("li")].map(li => date + " " + li.dataset.kind + " " + (li.querySelector(".t") ? li.querySelector(".t").textContent : ""));
+})`
+
+// The builder, filled for a known place and date, previews the same times
+// as `heliocal events`; its subscribe link is an absolute URL of a feed
+// that parses; its table link shows the same days; the page fits 1280 px
+// and 390 px without horizontal scrolling, with every input labelled.
+func TestBrowserBuilder(t *testing.T) {
+	ts := builderServer(t)
+	ctx := browser(t)
+	// Santiago de Chile, given in degrees and minutes: 33°27′S 70°40′W.
+	const lat, lon, from = -33.45, -70.6667, "2026-06-21"
+	id := func(s string) chromedp.ID { return chromedp.ID(s) }
+	if err := chromedp.Do(ctx,
+		chromedp.Navigate(ts.URL+"/"),
+		chromedp.WaitVisible(id("lat")),
+		chromedp.SendKeys(id("lat"), "33°27′S"),
+		chromedp.SendKeys(id("lon"), "70 40 0 W"),
+		chromedp.SendKeys(id("name"), "Quebrada vineyard"),
+		chromedp.Click(id("k-golden-hour")),
+		chromedp.SetValue(id("start"), from),
+		chromedp.Evaluate[chromedp.Void](`document.getElementById("builder").dispatchEvent(new Event("input"))`),
+		chromedp.Poll[chromedp.Void](`(() => { const th = document.querySelector("#preview th"); return th && th.textContent.includes("`+from+`") && document.getElementById("tz-found").textContent.startsWith("America/Santiago"); })()`),
+	); err != nil {
+		state, _ := chromedp.Run(ctx, chromedp.Evaluate[string](`JSON.stringify({message: document.getElementById("message").textContent, zone: document.getElementById("tz-found").textContent, lat: document.getElementById("lat").value, lon: document.getElementById("lon").value, start: document.getElementById("start").value, first: (document.querySelector("#preview th") || {}).textContent})`))
+		shot(t, ctx, "builder-failed.png")
+		t.Fatalf("filling the builder: %v; page state %s", err, state)
+	}
+	got, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](previewRows))
+	if err != nil {
+		t.Fatal(err)
+	}
+	attr := func(sel, name string) string {
+		t.Helper()
+		v, err := chromedp.Run(ctx, chromedp.AttributeValue(id(sel), name))
+		if err != nil {
+			t.Fatal(err)
+		}
+		return v.Value
+	}
+	https, err := chromedp.Run(ctx, chromedp.Value(id("https")))
+	if err != nil {
+		t.Fatal(err)
+	}
+	webcalHref, page, qr := attr("webcal", "href"), attr("page", "href"), attr("qr", "src")
+
+	// The same week from the command line.
+	kinds := "civil-dawn,sunrise,sunset,civil-dusk,golden-hour"
+	code, out, errOut := runCLI(t, "events", "--lat", fmt.Sprint(lat), "--lon", fmt.Sprint(lon), "--kinds", kinds,
+		"--from", from, "--to", "2026-06-27", "--format", "json")
+	if code != 0 {
+		t.Fatalf("heliocal events: exit %d: %s", code, errOut)
+	}
+	var ev struct {
+		Events []struct {
+			Kind       string
+			Start, End time.Time
+			Date       string
+		}
+	}
+	if err := json.Unmarshal([]byte(out), &ev); err != nil {
+		t.Fatal(err)
+	}
+	loc, _ := time.LoadLocation("America/Santiago")
+	var want []string
+	for _, e := range ev.Events {
+		clock := feed.ToMinute(e.Start).In(loc).Format("15:04")
+		if !e.End.IsZero() {
+			clock += "–" + feed.ToMinute(e.End).In(loc).Format("15:04")
+		}
+		want = append(want, e.Date+" "+e.Kind+" "+clock)
+	}
+	slices.Sort(got)
+	slices.Sort(want)
+	if len(want) < 7*6 || !slices.Equal(got, want) {
+		t.Errorf("the preview differs from heliocal events:\npreview: %q\nevents:  %q", got, want)
+	}
+
+	// The subscribe links are absolute and the feed parses.
+	if !strings.HasPrefix(https, ts.URL+"/at.ics?") || webcalHref != "webcal://"+strings.TrimPrefix(https, "http://") {
+		t.Errorf("subscribe links %q and %q, want absolute ones under %s", https, webcalHref, ts.URL)
+	}
+	if !strings.HasPrefix(qr, "data:image/svg+xml;base64,") {
+		t.Errorf("QR code src %.40q, want an SVG data: URL", qr)
+	}
+	resp, err := http.Get(https)
+	if err != nil {
+		t.Fatal(err)
+	}
+	body, _ := io.ReadAll(resp.Body)
+	resp.Body.Close()
+	if resp.StatusCode != 200 || !strings.HasPrefix(resp.Header.Get("Content-Type"), "text/calendar") {
+		t.Fatalf("GET %s: %d %s", https, resp.StatusCode, body)
+	}
+	cal, err := ics.ParseCalendar(bytes.NewReader(body))
+	if err != nil {
+		t.Fatalf("the subscribed feed does not parse: %v", err)
+	}
+	// A year of five kinds is over the 1 MB limit: the link asks for the
+	// days that fit, and the feed is served whole.
+	u, _ := url.Parse(https)
+	days, _ := strconv.Atoi(u.Query().Get("days"))
+	if n := len(cal.Events()); days < 150 || days >= 365 || n < days*5 || len(body) > 1_000_000 {
+		t.Errorf("the subscribed feed: days=%d, %d events, %d bytes; want the days that fit 1 MB, five or more events a day", days, n, len(body))
+	}
+	if !strings.Contains(string(body), "Quebrada vineyard") {
+		t.Errorf("the feed does not carry the place's name")
+	}
+
+	for _, w := range []struct {
+		width, height int64
+		file          string
+	}{{1280, 900, "builder-1280.png"}, {390, 844, "builder-390.png"}} {
+		if err := chromedp.Do(ctx, chromedp.EmulateViewport(w.width, w.height)); err != nil {
+			t.Fatal(err)
+		}
+		problems, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](layoutProblems))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(problems) > 0 {
+			t.Errorf("at %d px: %s", w.width, strings.Join(problems, "; "))
+		}
+		if w.width < 500 {
+			save(t, ctx, w.file, chromedp.CaptureScreenshot()) // what a phone shows first
+		} else {
+			shot(t, ctx, w.file)
+		}
+	}
+	// What a phone shows once the place is chosen: the result.
+	save(t, ctx, "result-390.png", chromedp.Screenshot(id("result")))
+
+	// The shareable page: the same days as a printable table.
+	if err := chromedp.Do(ctx,
+		chromedp.EmulateViewport(390, 844),
+		chromedp.Navigate(page),
+		chromedp.WaitVisible(chromedp.CSS("table.days")),
+	); err != nil {
+		t.Fatal(err)
+	}
+	rows, err := chromedp.Run(ctx, chromedp.Evaluate[int](`document.querySelectorAll("table.days tbody tr").length`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	text, err := chromedp.Run(ctx, chromedp.Text(chromedp.CSS("table.days")))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if rows != 7 || !strings.Contains(text, "2026-06-21") {
+		t.Errorf("the table page has %d rows from %q…, want 7 from %s", rows, text[:min(len(text), 40)], from)
+	}
+	sunrise := want[slices.IndexFunc(want, func(s string) bool { return strings.Contains(s, " sunrise ") })]
+	if clock := sunrise[strings.LastIndex(sunrise, " ")+1:]; !strings.Contains(text, clock) {
+		t.Errorf("the table page lacks the first sunrise %s", clock)
+	}
+	problems, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](layoutProblems))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(problems) > 0 {
+		t.Errorf("table page at 390 px: %s", strings.Join(problems, "; "))
+	}
+	shot(t, ctx, "table-390.png")
+
+	// Dark mode: the page follows prefers-color-scheme.
+	if _, err := chromedp.Call(ctx, emulation.SetEmulatedMedia, emulation.SetEmulatedMediaParams{
+		Features: []*emulation.MediaFeature{{Name: "prefers-color-scheme", Value: "dark"}}}); err != nil {
+		t.Fatal(err)
+	}
+	if err := chromedp.Do(ctx,
+		chromedp.EmulateViewport(1280, 900),
+		chromedp.Navigate(ts.URL+"/"),
+		chromedp.WaitVisible(id("lat")),
+	); err != nil {
+		t.Fatal(err)
+	}
+	bg, err := chromedp.Run(ctx, chromedp.Evaluate[string](`getComputedStyle(document.body).backgroundColor`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if bg != "rgb(16, 22, 29)" {
+		t.Errorf("dark mode background %s, want the dark palette's rgb(16, 22, 29)", bg)
+	}
+	shot(t, ctx, "builder-dark-1280.png")
+}

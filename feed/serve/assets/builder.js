@@ -1,0 +1,177 @@
+// The builder page: reads the form, asks the server for a preview of the
+// next seven days (/at.json) and shows the subscribe links it returns.
+"use strict";
+
+// parseAngle reads decimal degrees ("-33.45") or degrees, minutes and
+// seconds with a hemisphere letter ("33°27′S", "33 27 0 S", "S 33.45").
+// neg is the letter that makes the value negative ("S" or "W"); pos the
+// other. It returns a number or null.
+function parseAngle(text, pos, neg) {
+  let s = text.trim().toUpperCase().replace(",", ".");
+  if (s === "") return null;
+  let sign = 1;
+  const letters = s.match(/[NSEW]/g);
+  if (letters) {
+    if (letters.length > 1) return null;
+    if (letters[0] === neg) sign = -1;
+    else if (letters[0] !== pos) return null;
+    s = s.replace(/[NSEW]/, " ");
+  }
+  if (/^\s*[+-]?\d+(\.\d+)?\s*°?\s*$/.test(s)) {
+    const v = parseFloat(s.replace("°", ""));
+    if (letters && v < 0) return null;
+    return sign * v;
+  }
+  const parts = s.split(/[°º'′’"″”\s]+/).filter((p) => p !== "");
+  if (parts.length < 2 || parts.length > 3 || parts.some((p) => !/^\d+(\.\d+)?$/.test(p))) return null;
+  const [d, m, sec] = [parseFloat(parts[0]), parseFloat(parts[1]), parseFloat(parts[2] || "0")];
+  if (m >= 60 || sec >= 60) return null;
+  return sign * (d + m / 60 + sec / 3600);
+}
+
+const $ = (id) => document.getElementById(id);
+
+function query(withStart) {
+  const lat = parseAngle($("lat").value, "N", "S");
+  const lon = parseAngle($("lon").value, "E", "W");
+  if (lat === null || lat < -90 || lat > 90) return { error: "Latitude: enter decimal degrees (−90 to 90) or degrees, minutes, seconds with N or S." };
+  if (lon === null || lon < -180 || lon > 180) return { error: "Longitude: enter decimal degrees (−180 to 180) or degrees, minutes, seconds with E or W." };
+  const p = new URLSearchParams();
+  p.set("lat", lat.toFixed(4));
+  p.set("lon", lon.toFixed(4));
+  const kinds = [...document.querySelectorAll("input[name=kinds]:checked")].map((c) => c.value);
+  if (kinds.length === 0 && $("lighting").value === "") return { error: "Choose at least one kind of event." };
+  if (kinds.length) p.set("kinds", kinds.join(","));
+  const num = (id) => $(id).value.trim();
+  if (num("elev") !== "" && num("elev") !== "0") p.set("elev", num("elev"));
+  if (num("horizon") !== "" && num("horizon") !== "0") p.set("horizon", num("horizon"));
+  if ($("name").value.trim() !== "") p.set("name", $("name").value.trim());
+  if ($("tz").value.trim() !== "") p.set("tz", $("tz").value.trim());
+  if (num("alarm") !== "" && num("alarm") !== "0") p.set("alarm", num("alarm") + "m");
+  if (num("lighting") !== "") p.set("lighting", Math.round(parseFloat(num("lighting")) * 60) + "m");
+  if (withStart && $("start").value) p.set("start", $("start").value);
+  return { params: p };
+}
+
+function show(msg) {
+  const m = $("message");
+  m.textContent = msg;
+  m.hidden = !msg;
+  $("result").classList.toggle("stale", !!msg);
+}
+
+function render(res) {
+  $("result").classList.add("ready");
+  $("webcal").href = res.webcal;
+  $("https").value = res.https;
+  $("page").href = res.page;
+  $("qr").src = res.qr;
+  $("tz-found").textContent = res.zone + (res.zone_found ? " (found from the coordinates)" : "");
+  $("zone-note").textContent = "(times in " + res.zone + ")";
+  $("span-note").textContent = res.subscribe_days
+    ? "The calendar always covers the next " + res.subscribe_days + " days" +
+      (res.subscribe_days < 365 ? " (a year of these events would be too large for some calendar apps)." : ".")
+    : "";
+  const box = $("preview");
+  box.textContent = "";
+  const table = document.createElement("table");
+  table.className = "days";
+  const body = table.createTBody();
+  for (const day of res.days) {
+    const row = body.insertRow();
+    const th = document.createElement("th");
+    th.scope = "row";
+    th.textContent = day.weekday + " " + day.date;
+    row.appendChild(th);
+    const td = row.insertCell();
+    if (day.entries.length === 0) td.textContent = "—";
+    const ul = document.createElement("ul");
+    for (const e of day.entries) {
+      const li = document.createElement("li");
+      li.dataset.kind = e.kind;
+      if (e.time) {
+        const t = document.createElement("span");
+        t.className = "t";
+        t.textContent = e.time + (e.end ? "–" + e.end : "");
+        li.appendChild(t);
+        li.appendChild(document.createTextNode(" "));
+      }
+      li.appendChild(document.createTextNode(e.title));
+      ul.appendChild(li);
+    }
+    if (day.entries.length) td.appendChild(ul);
+  }
+  box.appendChild(table);
+}
+
+let timer = 0;
+let seq = 0;
+function update() {
+  clearTimeout(timer);
+  timer = setTimeout(async () => {
+    const q = query(true);
+    if (q.error) {
+      if ($("lat").value || $("lon").value) show(q.error);
+      return;
+    }
+    const mine = ++seq;
+    try {
+      const r = await fetch("/at.json?" + q.params.toString());
+      const text = await r.text();
+      if (mine !== seq) return;
+      if (!r.ok) {
+        show(text.trim().replace(/^serve: /, ""));
+        return;
+      }
+      show("");
+      render(JSON.parse(text));
+      document.body.dataset.previewed = String(mine);
+    } catch (err) {
+      if (mine === seq) show("The server could not be reached: " + err.message);
+    }
+  }, 250);
+}
+
+function locate() {
+  const status = $("locate-status");
+  if (!navigator.geolocation) {
+    status.textContent = "This browser cannot tell its location.";
+    return;
+  }
+  status.textContent = "Asking the browser for your location…";
+  navigator.geolocation.getCurrentPosition(
+    (pos) => {
+      $("lat").value = pos.coords.latitude.toFixed(4);
+      $("lon").value = pos.coords.longitude.toFixed(4);
+      if (pos.coords.altitude != null) $("elev").value = Math.round(pos.coords.altitude);
+      status.textContent = "Location filled in.";
+      update();
+    },
+    (err) => { status.textContent = "No location: " + err.message; },
+    { enableHighAccuracy: false, timeout: 15000 }
+  );
+}
+
+async function copy() {
+  const field = $("https");
+  let ok = false;
+  try {
+    await navigator.clipboard.writeText(field.value);
+    ok = true;
+  } catch (_) {
+    field.select();
+    ok = document.execCommand && document.execCommand("copy");
+  }
+  $("copy-status").textContent = ok ? "Copied." : "Select the address and copy it.";
+}
+
+document.addEventListener("DOMContentLoaded", () => {
+  const form = $("builder");
+  if (!form) return;
+  form.addEventListener("input", update);
+  form.addEventListener("change", update);
+  form.addEventListener("submit", (e) => { e.preventDefault(); update(); });
+  $("locate").addEventListener("click", locate);
+  $("copy").addEventListener("click", copy);
+  update();
+});

@@ -1,0 +1,442 @@
+package serve
+
+import (
+	"bytes"
+	"context"
+	"embed"
+	"encoding/base64"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"html/template"
+	"net/http"
+	"net/url"
+	"path"
+	"strconv"
+	"strings"
+	"time"
+
+	"rsc.io/qr"
+
+	"heliocal/feed"
+)
+
+// PreviewFunc computes the calendar of a validated ad-hoc query, through
+// the same code as the ad-hoc feeds: the builder's preview (/at.json) and
+// the day-by-day table (/at) show its entries.
+type PreviewFunc func(ctx context.Context, q AdhocQuery) (*feed.Calendar, error)
+
+// PageInfo is what the served page says beside the builder and the feeds.
+type PageInfo struct {
+	Title   string // the page's heading; default "Sun and Moon calendars"
+	Intro   string // a short introduction under the heading
+	Contact string // a contact line at the foot
+	Caution string // the caution shown above the feeds; default publish.Caution
+}
+
+// Routes of the builder.
+const (
+	PreviewPath = "/at.json" // the next days of an ad-hoc query as JSON
+	TablePath   = "/at"      // the same query as a printable day-by-day table
+	previewDays = 7
+	maxTable    = 62 // days of the table at most
+)
+
+// contentSecurityPolicy allows the page its own files only: no inline
+// script or style, nothing from elsewhere (the QR code is a data: image).
+const contentSecurityPolicy = "default-src 'none'; script-src 'self'; style-src 'self'; img-src 'self' data:; " +
+	"connect-src 'self'; form-action 'self'; base-uri 'none'; frame-ancestors 'none'; manifest-src 'self'"
+
+//go:embed assets
+var assetFiles embed.FS
+
+var (
+	pageTemplates = template.Must(template.New("").Funcs(template.FuncMap{
+		"webcal": func(u string) template.URL { return template.URL(webcal(u)) },
+	}).ParseFS(assetFiles, "assets/*.html"))
+	staticAssets = loadStatic()
+	hdrCSP       = hdr(contentSecurityPolicy)
+	hdrNoCache   = hdr("no-cache")
+)
+
+// loadStatic prepares the page's own files (script, style, icon) once.
+func loadStatic() map[string]*asset {
+	out := map[string]*asset{}
+	for name, ctype := range map[string]string{
+		"builder.js":  "text/javascript; charset=utf-8",
+		"builder.css": "text/css; charset=utf-8",
+		"favicon.svg": "image/svg+xml",
+	} {
+		data, err := assetFiles.ReadFile("assets/" + name)
+		if err != nil {
+			panic(err) // embedded: cannot fail
+		}
+		out["/assets/"+name] = newAsset(name, ctype, data, time.Time{}, nil)
+	}
+	out["/favicon.svg"] = out["/assets/favicon.svg"]
+	out["/favicon.ico"] = out["/assets/favicon.svg"]
+	return out
+}
+
+// builderRoute tells the builder's routes apart.
+func builderRoute(p string) (string, bool) {
+	switch {
+	case p == PreviewPath:
+		return routePreview, true
+	case p == TablePath || staticAssets[p] != nil:
+		return routePage, true
+	}
+	return "", false
+}
+
+func (s *Server) serveBuilder(w http.ResponseWriter, r *http.Request, route, p string) {
+	if a := staticAssets[p]; a != nil {
+		h := w.Header()
+		h["Content-Type"] = a.contentType
+		h["Cache-Control"] = hdrNoCache
+		h["Etag"] = a.etag
+		http.ServeContent(w, r, "", time.Time{}, bytes.NewReader(a.data))
+		return
+	}
+	if s.opts.Preview == nil {
+		plain(w, http.StatusNotFound, "the preview is not enabled on this server")
+		return
+	}
+	if route == routePreview {
+		s.servePreview(w, r)
+		return
+	}
+	s.serveTable(w, r)
+}
+
+// previewQuery parses an ad-hoc query for a preview of at most maxDays
+// days (defaultDays when days is not given).
+func (s *Server) previewQuery(r *http.Request, defaultDays, maxDays int) (AdhocQuery, bool, error) {
+	lim := *s.limits
+	lim.defaultDays, lim.maxDays = defaultDays, maxDays
+	q, err := parseAdhoc(r.URL.RawQuery, s.now(), &lim)
+	_, hasStart := r.URL.Query()[ParamStart]
+	return q, hasStart, err
+}
+
+// compute runs Preview within the ad-hoc concurrency limit and timeout.
+func (s *Server) compute(ctx context.Context, q AdhocQuery) (*feed.Calendar, error) {
+	select {
+	case s.adhocSem <- struct{}{}:
+	case <-ctx.Done():
+		return nil, errAdhocBusy
+	}
+	defer func() { <-s.adhocSem }()
+	ctx, cancel := context.WithTimeout(ctx, s.opts.AdhocTimeout)
+	defer cancel()
+	return s.opts.Preview(ctx, q)
+}
+
+// previewEntry and previewDay are the JSON of /at.json.
+type previewEntry struct {
+	Kind  string `json:"kind"`
+	Title string `json:"title"`
+	Time  string `json:"time,omitempty"` // local HH:MM; empty for an all-day entry
+	End   string `json:"end,omitempty"`  // local HH:MM of a span's end
+	// EndDate is the local date of the end when it is not the entry's date.
+	EndDate string `json:"end_date,omitempty"`
+}
+
+type previewDay struct {
+	Date    string         `json:"date"` // YYYY-MM-DD, local
+	Weekday string         `json:"weekday"`
+	Entries []previewEntry `json:"entries"`
+}
+
+type previewResult struct {
+	Zone      string `json:"zone"`
+	ZoneFound bool   `json:"zone_found"`
+	Name      string `json:"name"`
+	Title     string `json:"title"`
+	HTTPS     string `json:"https"`
+	Webcal    string `json:"webcal"`
+	Page      string `json:"page"`
+	QR        string `json:"qr"` // a data: URL of an SVG image of Page
+	// SubscribeDays is the window of the subscription, from the day of
+	// each refresh: fewer than the default when a year would be too large.
+	SubscribeDays int          `json:"subscribe_days"`
+	Days          []previewDay `json:"days"`
+}
+
+// subscribeDays is the window of q's subscription: the default ad-hoc
+// window, or fewer days when that feed would be over the size limit
+// (estimated from four weeks of the same feed: its size is nearly
+// proportional to the days, and the fixed part makes the estimate err on
+// the small side).
+func (s *Server) subscribeDays(ctx context.Context, q AdhocQuery) (int, error) {
+	const sample = 28
+	q.Days = sample
+	select {
+	case s.adhocSem <- struct{}{}:
+	case <-ctx.Done():
+		return 0, errAdhocBusy
+	}
+	defer func() { <-s.adhocSem }()
+	data, err := s.opts.Adhoc(ctx, q)
+	if err != nil {
+		return 0, err
+	}
+	fit := s.opts.AdhocMaxBytes * 9 / 10 * sample / max(len(data), 1)
+	return max(1, min(s.opts.AdhocDefaultDays, fit)), nil
+}
+
+// links are the subscribe links of q (a rolling window from the day of
+// each request: no start; days only when fewer than the default) and its
+// shareable table page.
+func (s *Server) links(r *http.Request, q AdhocQuery, start string, days int) (https, page string) {
+	base := s.baseFor(r)
+	https = base + strings.TrimPrefix(AdhocPath, "/") + "?" + q.place()
+	if days > 0 && days < s.opts.AdhocDefaultDays {
+		https += "&" + ParamDays + "=" + strconv.Itoa(days)
+	}
+	page = base + strings.TrimPrefix(TablePath, "/") + "?" + q.place()
+	if start != "" {
+		page += "&" + ParamStart + "=" + start
+	}
+	return https, page
+}
+
+func (s *Server) servePreview(w http.ResponseWriter, r *http.Request) {
+	q, hasStart, err := s.previewQuery(r, previewDays, previewDays)
+	if err != nil {
+		plain(w, http.StatusBadRequest, err.Error())
+		return
+	}
+	cal, err := s.compute(r.Context(), q)
+	if s.computeFailed(w, q, err) {
+		return
+	}
+	start := ""
+	if hasStart {
+		start = q.Start.Format(time.DateOnly)
+	}
+	subDays := 0
+	if s.opts.Adhoc != nil {
+		subDays, err = s.subscribeDays(r.Context(), q)
+		if s.computeFailed(w, q, err) {
+			return
+		}
+	}
+	https, page := s.links(r, q, start, subDays)
+	res := previewResult{SubscribeDays: subDays, Zone: q.Location.String(), ZoneFound: q.ZoneFound, Name: cal.Site.Name, Title: cal.Title,
+		HTTPS: https, Webcal: webcal(https), Page: page, QR: qrDataURL(page), Days: days(cal, q)}
+	body, err := json.Marshal(res)
+	if err != nil {
+		plain(w, http.StatusInternalServerError, "internal error")
+		return
+	}
+	h := w.Header()
+	h.Set("Content-Type", "application/json")
+	h["Cache-Control"] = hdrNoStore
+	h.Set("Content-Length", strconv.Itoa(len(body)))
+	if r.Method != http.MethodHead {
+		w.Write(body)
+	}
+}
+
+// computeFailed answers a failed computation and reports whether it did.
+func (s *Server) computeFailed(w http.ResponseWriter, q AdhocQuery, err error) bool {
+	var qe *QueryError
+	switch {
+	case err == nil:
+		return false
+	case errors.As(err, &qe):
+		plain(w, http.StatusBadRequest, qe.Error())
+	case errors.Is(err, errAdhocBusy), errors.Is(err, context.DeadlineExceeded), errors.Is(err, context.Canceled):
+		w.Header()["Retry-After"] = hdrRetryAfter
+		plain(w, http.StatusServiceUnavailable, "server busy; try again shortly")
+	default:
+		s.log.Error("preview failed", "query", q.String(), "err", err)
+		plain(w, http.StatusInternalServerError, "internal error computing the preview")
+	}
+	return true
+}
+
+// days groups the calendar's entries by local date, every date of the
+// window listed (a date may have no entry: polar day or night).
+func days(cal *feed.Calendar, q AdhocQuery) []previewDay {
+	loc := q.Location
+	out := make([]previewDay, q.Days)
+	index := map[string]int{}
+	for i := range out {
+		d := q.Start.AddDate(0, 0, i)
+		out[i] = previewDay{Date: d.Format(time.DateOnly), Weekday: d.Format("Mon"), Entries: []previewEntry{}}
+		index[out[i].Date] = i
+	}
+	for _, e := range cal.Entries {
+		date := e.Date
+		if date.IsZero() {
+			date = e.Start
+		}
+		i, ok := index[date.Format(time.DateOnly)]
+		if !ok {
+			continue
+		}
+		pe := previewEntry{Kind: e.Kind, Title: e.Title}
+		if !e.AllDay {
+			start := feed.ToMinute(e.Start).In(loc) // shown to the minute: the one rounding rule
+			pe.Time = start.Format("15:04")
+			if !e.End.IsZero() {
+				end := feed.ToMinute(e.End).In(loc)
+				pe.End = end.Format("15:04")
+				if end.Format(time.DateOnly) != start.Format(time.DateOnly) {
+					pe.EndDate = end.Format(time.DateOnly)
+				}
+			}
+		}
+		out[i].Entries = append(out[i].Entries, pe)
+	}
+	return out
+}
+
+// qrDataURL draws text as a QR code (error correction M, 4-module quiet
+// zone) in an SVG data: URL; empty if it does not fit.
+func qrDataURL(text string) string {
+	c, err := qr.Encode(text, qr.M)
+	if err != nil {
+		return ""
+	}
+	const quiet = 4
+	n := c.Size + 2*quiet
+	var b strings.Builder
+	fmt.Fprintf(&b, `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 %d %d" shape-rendering="crispEdges">`, n, n)
+	fmt.Fprintf(&b, `<rect width="%d" height="%d" fill="#fff"/><path fill="#000" d="`, n, n)
+	for y := 0; y < c.Size; y++ {
+		for x := 0; x < c.Size; {
+			if !c.Black(x, y) {
+				x++
+				continue
+			}
+			run := 1
+			for x+run < c.Size && c.Black(x+run, y) {
+				run++
+			}
+			fmt.Fprintf(&b, "M%d %dh%dv1h-%dz", x+quiet, y+quiet, run, run)
+			x += run
+		}
+	}
+	b.WriteString(`"/></svg>`)
+	return "data:image/svg+xml;base64," + base64.StdEncoding.EncodeToString([]byte(b.String()))
+}
+
+// htmlHeaders are the headers of the served HTML pages.
+func htmlHeaders(w http.ResponseWriter) {
+	h := w.Header()
+	h.Set("Content-Type", "text/html; charset=utf-8")
+	h["Content-Security-Policy"] = hdrCSP
+	h["Cache-Control"] = hdrNoStore
+	h.Set("Referrer-Policy", "no-referrer")
+}
+
+func (s *Server) render(w http.ResponseWriter, r *http.Request, name string, data any) {
+	var buf bytes.Buffer
+	if err := pageTemplates.ExecuteTemplate(&buf, name, data); err != nil {
+		s.log.Error("page template failed", "page", name, "err", err)
+		plain(w, http.StatusInternalServerError, "internal error")
+		return
+	}
+	htmlHeaders(w)
+	w.Header().Set("Content-Length", strconv.Itoa(buf.Len()))
+	if r.Method != http.MethodHead {
+		w.Write(buf.Bytes())
+	}
+}
+
+// tableView is the data of table.html.
+type tableView struct {
+	Page          PageInfo
+	Title, Zone   string
+	Coords        string
+	HTTPS, Webcal string
+	Link, QR      template.URL
+	Days          []previewDay
+	From, To      string
+	Caution       string
+	Builder       bool
+}
+
+func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
+	q, hasStart, err := s.previewQuery(r, previewDays, maxTable)
+	if err != nil {
+		plain(w, http.StatusBadRequest, err.Error())
+		return
+	}
+	cal, err := s.compute(r.Context(), q)
+	if s.computeFailed(w, q, err) {
+		return
+	}
+	start := ""
+	if hasStart {
+		start = q.Start.Format(time.DateOnly)
+	}
+	https, page := s.links(r, q, start, 0)
+	v := tableView{Page: s.page(), Title: cal.Title, Zone: q.Location.String(),
+		Coords: fmt.Sprintf("%.4f, %.4f, %g m", q.Latitude, q.Longitude, q.Elevation),
+		HTTPS:  https, Webcal: webcal(https), Link: template.URL(page), QR: template.URL(qrDataURL(page)),
+		Days: days(cal, q), From: q.Start.Format(time.DateOnly), To: q.Start.AddDate(0, 0, q.Days-1).Format(time.DateOnly),
+		Caution: s.page().Caution, Builder: !s.opts.NoBuilder}
+	s.render(w, r, "table.html", v)
+}
+
+// page is the page settings with their defaults.
+func (s *Server) page() PageInfo {
+	p := s.opts.Page
+	if p.Title == "" {
+		p.Title = "Sun and Moon calendars"
+	}
+	if p.Caution == "" {
+		p.Caution = defaultCaution
+	}
+	return p
+}
+
+// defaultCaution is the public caution of the served page.
+const defaultCaution = "These times are computed for the coordinates given; hills, buildings, weather and the air shift them by " +
+	"minutes. Where a rule depends on them (hunting hours, aviation night, lighting-up times for vehicles), follow your " +
+	"local regulations and the official tables. Never look at the Sun, with or without binoculars or a telescope."
+
+// homeFeed is one published feed on the page.
+type homeFeed struct {
+	ID, Title, Site, HTTPS string
+}
+
+type homeView struct {
+	Page    PageInfo
+	Builder bool
+	Groups  []kindGroup
+	Feeds   []homeFeed
+	Today   string
+}
+
+func (s *Server) serveHome(w http.ResponseWriter, r *http.Request) {
+	v := homeView{Page: s.page(), Builder: !s.opts.NoBuilder, Groups: kindGroups, Today: s.now().Format(time.DateOnly)}
+	if snap := s.snap.Load(); snap != nil && snap.files["feeds.json"] != nil {
+		v.Feeds = feedLinks(snap.files["feeds.json"].data, s.baseFor(r))
+	}
+	s.render(w, r, "builder.html", v)
+}
+
+// feedLinks lists the feeds of a feeds.json document with absolute URLs.
+func feedLinks(doc []byte, base string) []homeFeed {
+	doc, _ = withURLs(doc, base)
+	var obj struct {
+		Feeds []struct{ ID, Title, Site, URL string }
+	}
+	if json.Unmarshal(doc, &obj) != nil || obj.Feeds == nil {
+		json.Unmarshal(doc, &obj.Feeds)
+	}
+	out := make([]homeFeed, 0, len(obj.Feeds))
+	for _, f := range obj.Feeds {
+		u, err := url.Parse(f.URL)
+		if err != nil || (u.Scheme != "http" && u.Scheme != "https") || path.Ext(u.Path) != ".ics" {
+			continue
+		}
+		out = append(out, homeFeed{ID: f.ID, Title: f.Title, Site: f.Site, HTTPS: f.URL})
+	}
+	return out
+}

@@ -1,0 +1,129 @@
+package serve
+
+import (
+	"context"
+	"encoding/base64"
+	"encoding/json"
+	"net/http"
+	"strings"
+	"testing"
+	"time"
+
+	"heliocal/config"
+	"heliocal/feed"
+)
+
+// previewCalendar is a Preview that lists one entry per kind per date at
+// 06:00 UTC: the serve package's own tests need no astronomy.
+func previewCalendar(_ context.Context, q AdhocQuery) (*feed.Calendar, error) {
+	cal := &feed.Calendar{Title: "Sky events at " + q.Name, Site: feed.Site{Name: q.Name, Location: q.Location}}
+	for i := range q.Days {
+		d := q.Start.AddDate(0, 0, i)
+		for _, k := range q.Kinds {
+			cal.Entries = append(cal.Entries, feed.Entry{Kind: k, Title: k, Date: d,
+				Start: d.Add(6*time.Hour + 29*time.Minute + 30*time.Second)})
+		}
+	}
+	return cal, nil
+}
+
+func builderTestServer(t *testing.T) *Server {
+	s, _ := newTestServer(t, Options{Adhoc: adhocICS, Preview: previewCalendar})
+	s.now = func() time.Time { return today }
+	return s
+}
+
+func TestPreviewJSON(t *testing.T) {
+	s := builderTestServer(t)
+	r := get(t, s.Handler(), "GET", "/at.json?lat=-33.45&lon=-70.6667&kinds=sunrise&name=Quebrada&start=2026-06-21")
+	b := body(t, r)
+	if r.StatusCode != 200 {
+		t.Fatalf("status %d: %s", r.StatusCode, b)
+	}
+	var res previewResult
+	if err := json.Unmarshal([]byte(b), &res); err != nil {
+		t.Fatal(err)
+	}
+	if res.Zone != "America/Santiago" || !res.ZoneFound {
+		t.Errorf("zone %q found=%v, want America/Santiago from the coordinates", res.Zone, res.ZoneFound)
+	}
+	if len(res.Days) != 7 || res.Days[0].Date != "2026-06-21" || res.Days[0].Weekday != "Sun" {
+		t.Fatalf("days %+v", res.Days)
+	}
+	// 06:29:30 UTC is 02:29:30 in Santiago (UTC−4 in June): 02:30 to the minute.
+	if e := res.Days[0].Entries; len(e) != 1 || e[0].Time != "02:30" || e[0].Kind != "sunrise" {
+		t.Errorf("entries %+v, want sunrise at 02:30 local", e)
+	}
+	if !strings.HasPrefix(res.HTTPS, "http://example.com/at.ics?lat=-33.45&lon=-70.6667") || strings.Contains(res.HTTPS, "start=") ||
+		res.Webcal != "webcal://"+strings.TrimPrefix(res.HTTPS, "http://") {
+		t.Errorf("links %q, %q: want absolute, rolling (no start)", res.HTTPS, res.Webcal)
+	}
+	if !strings.HasPrefix(res.Page, "http://example.com/at?") || !strings.Contains(res.Page, "start=2026-06-21") {
+		t.Errorf("page link %q", res.Page)
+	}
+	svg, err := base64.StdEncoding.DecodeString(strings.TrimPrefix(res.QR, "data:image/svg+xml;base64,"))
+	if err != nil || !strings.HasPrefix(string(svg), "<svg") {
+		t.Errorf("QR %.60q: not an SVG data URL (%v)", res.QR, err)
+	}
+	for _, bad := range []string{"days=8", "lat=95", "horizon=50"} {
+		r := get(t, s.Handler(), "GET", "/at.json?lat=1&lon=2&kinds=sunrise&"+bad)
+		if m := body(t, r); r.StatusCode != 400 || strings.Count(m, "\n") != 1 {
+			t.Errorf("%s: %d %q, want a one-line 400", bad, r.StatusCode, m)
+		}
+	}
+}
+
+func TestBuilderPages(t *testing.T) {
+	s := builderTestServer(t)
+	h := s.Handler()
+	for _, tc := range []struct{ path, ctype, has string }{
+		{"/", "text/html; charset=utf-8", `id="builder"`},
+		{"/at?lat=47.8&lon=13.05&kinds=sunrise&days=3&start=2026-03-20", "text/html; charset=utf-8", "2026-03-22"},
+		{"/assets/builder.js", "text/javascript; charset=utf-8", "parseAngle"},
+		{"/assets/builder.css", "text/css; charset=utf-8", "prefers-color-scheme: dark"},
+		{"/favicon.svg", "image/svg+xml", "<svg"},
+	} {
+		r := get(t, h, "GET", tc.path)
+		b := body(t, r)
+		if r.StatusCode != 200 || r.Header.Get("Content-Type") != tc.ctype || !strings.Contains(b, tc.has) {
+			t.Errorf("%s: %d %q, body has %q: %v", tc.path, r.StatusCode, r.Header.Get("Content-Type"), tc.has, strings.Contains(b, tc.has))
+		}
+		if strings.HasPrefix(tc.ctype, "text/html") {
+			csp := r.Header.Get("Content-Security-Policy")
+			if !strings.Contains(csp, "default-src 'none'") || !strings.Contains(csp, "script-src 'self'") {
+				t.Errorf("%s: Content-Security-Policy %q", tc.path, csp)
+			}
+			// No inline script or style, no external resource.
+			for _, bad := range []string{"<script>", "<style", " style=", `src="http`, `stylesheet" href="http`} {
+				if strings.Contains(b, bad) {
+					t.Errorf("%s: the page contains %q", tc.path, bad)
+				}
+			}
+		}
+	}
+	if r := get(t, h, "GET", "/at?lat=47.8&lon=13.05&kinds=sunrise&days=63"); r.StatusCode != 400 {
+		t.Errorf("a 63-day table: %d, want 400", r.StatusCode)
+	}
+	// Without Preview, / is the bundle's index.html.
+	plainServer, _ := newTestServer(t, Options{})
+	if got := body(t, get(t, plainServer.Handler(), "GET", "/")); got != string(testBundle("a").File("index.html").Data) {
+		t.Errorf("/ without the builder is not the bundle's index.html")
+	}
+}
+
+// Every kind the builder offers is a kind of the vocabulary, each once.
+func TestKindGroupsAreKinds(t *testing.T) {
+	seen := map[string]bool{}
+	for _, g := range kindGroups {
+		for _, k := range g.Kinds {
+			if _, err := config.ParseKind(k.Kind); err != nil || seen[k.Kind] {
+				t.Errorf("group %s: kind %q: %v (repeated: %v)", g.ID, k.Kind, err, seen[k.Kind])
+			}
+			seen[k.Kind] = true
+			if k.Explain == "" || k.Label == "" {
+				t.Errorf("kind %s has no label or explanation", k.Kind)
+			}
+		}
+	}
+	_ = http.StatusOK
+}

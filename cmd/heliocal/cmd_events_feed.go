@@ -312,7 +312,7 @@ func noteText(n *feed.Note) string {
 // start_utc and end_utc), and the instants in local time with a numeric
 // offset.
 var eventsCSVHeader = []string{"date", "kind", "start_utc", "end_utc", "direction", "start_local", "end_local", "state",
-	"until", "part", "altitude_deg", "distance_au", "day_length_s", "day_change_s", "illuminated", "lamp_s",
+	"until", "detail", "part", "altitude_deg", "distance_au", "day_length_s", "day_change_s", "illuminated", "lamp_s",
 	"target_not_reached", "uncertainty_s", "max", "type", "magnitude", "obscuration", "umbral_magnitude",
 	"partial_start", "partial_end", "total_start", "total_end", "detail", "azimuth_deg"}
 

@@ -26,10 +26,11 @@ func ToSecond(t time.Time) time.Time { return t.Round(time.Millisecond).Round(ti
 func ToMinute(t time.Time) time.Time { return t.Round(time.Millisecond).Round(time.Minute) }
 
 // DateOnly reports whether an event names a date rather than an instant:
-// the dates on which day length crosses a threshold. Such an event has no
+// the dates on which day length crosses a threshold, and the daily summary
+// of a date (an all-day entry in a feed). Such an event has no
 // clock time in any output; its Start is only the local midnight that
 // begins its Date.
-func (e Event) DateOnly() bool { return e.Kind.Name == "photoperiod" }
+func (e Event) DateOnly() bool { return e.Kind.Name == "photoperiod" || e.Kind.Name == "daily-summary" }
 
 // DirectionWord names which way an event crosses its threshold, the same
 // word in JSON, CSV, the table and the calendar text: the Sun "rising" or

@@ -223,7 +223,7 @@ func describeMoon(s *siteInfo, e Event) (string, string) {
 		fmt.Fprintf(&b, "%s at %s, %s: the Moon is %s, %s lit.\nThe Moon %s.\n"+moonHorizonMeaning[e.Kind.Name],
 			plainNames[e.Kind.Name], at, s.where, waxing(e), percent(e.Illuminated), bearing(e), s.refraction)
 	case "moon-transit":
-		title = fmt.Sprintf("Moon highest, %s up", degrees(e.Altitude))
+		title = "Moon highest, " + height(e.Altitude, "up")
 		fmt.Fprintf(&b, "The Moon crosses the meridian at %s, %s, at %s altitude", at, s.where, degrees(e.Altitude))
 		if e.Altitude < 0 {
 			b.WriteString(", below the horizon")

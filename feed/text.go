@@ -117,6 +117,17 @@ func degrees(a float64) string {
 	return strings.Replace(s, "-", "−", 1)
 }
 
+// height says how high a body is in a title: "35.2° high" (with the word
+// given) above the horizon, "10.4° below the horizon" under it, never a
+// negative height.
+func height(alt float64, above string) string {
+	a := math.Round(alt*10) / 10
+	if a < 0 {
+		return degrees(-a) + " below the horizon"
+	}
+	return degrees(math.Abs(a)) + " " + above
+}
+
 // siteInfo is a site with its description, formatted once per feed.
 type siteInfo struct {
 	*config.Site
@@ -264,7 +275,7 @@ func describe(s *siteInfo, e Event) (string, string) {
 			b.WriteString("\n" + cautionLegal)
 		}
 	case "solar-noon":
-		title = fmt.Sprintf("Solar noon, Sun %s high", degrees(e.Altitude))
+		title = "Solar noon, Sun " + height(e.Altitude, "high")
 		fmt.Fprintf(&b, "Solar noon at %s, %s: the Sun crosses the meridian at %s altitude", at, s.where, degrees(e.Altitude))
 		if e.Altitude < 0 {
 			b.WriteString(", its centre below the horizon.")

@@ -84,14 +84,15 @@ const (
 
 // share writes a fraction as a whole percentage like percent, "89 %", but a
 // fraction that is not zero never rounds to "0 %" and one below 1 never to
-// "100 %": an eclipse of 0.3 % is still an eclipse.
+// "100 %" (an eclipse of 0.3 % is still an eclipse), nor up or down to a
+// figure it is not: 0.1 % is "less than 1 %", 99.7 % "more than 99 %".
 func share(f float64) string {
 	p := math.Round(f * 100)
 	switch {
 	case p == 0 && f > 0:
-		p = 1
+		return "less than 1 %"
 	case p == 100 && f < 1:
-		p = 99
+		return "more than 99 %"
 	}
 	return fmt.Sprintf("%.0f %%", p)
 }

@@ -30,6 +30,19 @@ func problemsOf(t *testing.T, err error) []FieldError {
 	return verr.Problems
 }
 
+// TestSkylineFromCSV reads a skyline from a CSV file (header and comments
+// skipped), sorted by azimuth.
+func TestSkylineFromCSV(t *testing.T) {
+	c, err := loadTestdata(t, "good-skyline.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := c.Sites[0]
+	if len(s.Skyline) != 7 || s.Skyline[0] != [2]float64{0, 3} || s.Skyline[6] != [2]float64{260, 15} || s.Horizon != 0 {
+		t.Errorf("skyline %v, horizon %v", s.Skyline, s.Horizon)
+	}
+}
+
 // TestValidationErrors checks one file per problem: the error names the
 // field path and the offending value, and says what is wrong.
 func TestValidationErrors(t *testing.T) {
@@ -50,6 +63,10 @@ func TestValidationErrors(t *testing.T) {
 		{"band-wrong-kind.yaml", "feeds[0].kinds[0].low", "10", "applies only to golden-hour and blue-hour", "sun-band:10..30", 0},
 		{"bad-band-empty.yaml", "feeds[0].kinds[0].low", "7", "the band 7..6 is empty", "-4..6", 0},
 		{"bad-sun-band.yaml", "feeds[0].kinds[0]", "sun-band:30..10", "low altitude must be below the high one", "low first", 0},
+		{"bad-skyline-point.yaml", "sites[0].horizon[1]", "[8, 90]", "altitude must be within -5..45 degrees", "azimuth comes first", 0},
+		{"bad-skyline-shape.yaml", "sites[0].horizon[1]", "[90]", "must be a pair [azimuth, altitude]", "horizon: [[0, 2.5]", 0},
+		{"bad-skyline-file.yaml", "sites[0].horizon", "no-such-skyline.csv", "no such skyline file", "azimuth,altitude", 0},
+		{"sun-hidden-no-skyline.yaml", "feeds[0].kinds[1]", "sun-hidden", `site "valley" has no skyline`, "horizon: [[0, 2]", 0},
 		{"bad-pressure.yaml", "sites[0].pressure_hpa", "29.9", "must be within 300..1100 hPa", "not reduced to sea level", 0},
 		{"bad-temperature.yaml", "sites[0].temperature_c", "95", "must be within -90..60 °C", "not Fahrenheit", 0},
 		{"bad-pressure-text.yaml", "sites[0].pressure_hpa", `"1013 hPa"`, "must be a number", "", 0},

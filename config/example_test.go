@@ -53,4 +53,5 @@ func ExampleDemo() {
 	// tallowgum   -41.35   172.98 Pacific/Auckland
 	// cairnmoor    39.08  -105.42 America/Denver
 	// skarvlia     68.80    15.40 Europe/Oslo
+	// brackenfold   47.05    11.20 Europe/Vienna
 }

@@ -114,6 +114,9 @@ func parse(data []byte, format string, env LookupEnv) (c *Config, err error) {
 		problems = decodeProblems(err)
 	}
 
+	for i := range c.Sites {
+		problems = append(problems, c.Sites[i].resolveHorizon(fmt.Sprintf("sites[%d].horizon", i))...)
+	}
 	fromEnv, envProblems := applyEnv(c, env)
 	problems = append(problems, envProblems...)
 	applyDefaults(c, explicit)

@@ -35,7 +35,16 @@ type Site struct {
 	Longitude float64 `mapstructure:"longitude"` // degrees, −180..180, east positive
 	Elevation float64 `mapstructure:"elevation"` // metres above sea level
 	TimeZone  Zone    `mapstructure:"timezone"`  // IANA name; when absent, the zone at the coordinates (ZoneAt)
-	Horizon   float64 `mapstructure:"horizon"`   // altitude of the visible horizon in degrees (hills), default 0
+	Horizon   float64 `mapstructure:"-"`         // altitude of the visible horizon in degrees (hills), default 0
+	// Skyline is the horizon per direction, [azimuth, altitude] points in
+	// degrees (azimuth from the north through the east), sorted by azimuth;
+	// nil when the horizon is one altitude. From the file's horizon key: a
+	// number (Horizon), a list of points, or the name of a CSV file of
+	// points (HorizonFile).
+	Skyline     [][2]float64 `mapstructure:"-"`
+	HorizonFile string       `mapstructure:"-"`
+	// HorizonValue is the horizon key as written; parse resolves it.
+	HorizonValue any `mapstructure:"horizon"`
 	// Pressure (hPa) and Temperature (°C) of the air scale the refraction
 	// at rise and set; nil = not given. When only one is given the other
 	// is the standard atmosphere's at Elevation (astro.StandardAtmosphere);

@@ -152,7 +152,15 @@ func PlaceOf(s *config.Site) Place {
 			o.Temperature = *s.Temperature
 		}
 	}
-	return Place{Observer: o, Location: s.TimeZone.Location}
+	pl := Place{Observer: o, Location: s.TimeZone.Location}
+	if len(s.Skyline) > 0 {
+		pts := make([]astro.SkyPoint, len(s.Skyline))
+		for i, p := range s.Skyline {
+			pts[i] = astro.SkyPoint{Azimuth: p[0], Altitude: p[1]}
+		}
+		pl.Skyline, _ = astro.NewSkyline(pts) // checked by config
+	}
+	return pl
 }
 
 // Entries turns the kinds of one feed into calendar entries for the local

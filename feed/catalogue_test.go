@@ -699,3 +699,52 @@ func TestPhotoperiodNeverReached(t *testing.T) {
 		t.Errorf("entries %+v, %v", entries, err)
 	}
 }
+
+// A site with a skyline (the demo's invented valley: a 25° peak due south):
+// on the winter solstice one sunrise (first appearance) and one sunset (last
+// disappearance), the Sun hidden behind the peak around noon as a
+// sun-hidden span, and the direct Sun of the date equal to sunset − sunrise
+// − the hidden span (to the millisecond rounding). A skyline at 2° all
+// round gives the same events as horizon: 2.
+func TestSkylineSite(t *testing.T) {
+	s := site(t, "valley", 47.05, 11.2, "Europe/Vienna")
+	s.Skyline = [][2]float64{{0, 3}, {100, 12}, {150, 4}, {176, 25}, {184, 25}, {190, 4}, {260, 15}, {300, 3}}
+	sk := sky(t, "2027-12-21", "2027-12-21")
+	ev, _, err := sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "sunrise", "sunset", "sun-hidden"), date("2027-12-21"), date("2027-12-21"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	by := map[string][]Event{}
+	for _, e := range ev {
+		by[e.Kind.Name] = append(by[e.Kind.Name], e)
+	}
+	if len(by["sunrise"]) != 1 || len(by["sunset"]) != 1 || len(by["sun-hidden"]) != 1 {
+		t.Fatalf("events %+v", by)
+	}
+	rise, set, hid := by["sunrise"][0], by["sunset"][0], by["sun-hidden"][0]
+	if !rise.DirectSun || !(hid.Start.After(rise.Start) && hid.End.Before(set.Start)) || hid.Azimuth < 150 || hid.Azimuth > 190 {
+		t.Errorf("sunrise %v, hidden %v–%v at %.1f°, sunset %v", rise.Start, hid.Start, hid.End, hid.Azimuth, set.Start)
+	}
+	direct := set.Start.Sub(rise.Start) - hid.End.Sub(hid.Start)
+	if d := rise.DayLength - direct; d.Abs() > 2*time.Millisecond {
+		t.Errorf("direct Sun %v, sunset − sunrise − hidden %v", rise.DayLength, direct)
+	}
+
+	flat := site(t, "flat", 47.05, 11.2, "Europe/Vienna")
+	flat.Skyline = [][2]float64{{0, 2}, {180, 2}}
+	hill := site(t, "hill", 47.05, 11.2, "Europe/Vienna")
+	hill.Horizon = 2
+	a, _, err := sk.Events(context.Background(), PlaceOf(flat), mustKinds(t, "sunrise", "sunset"), date("2027-12-21"), date("2027-12-21"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, _, err := sk.Events(context.Background(), PlaceOf(hill), mustKinds(t, "sunrise", "sunset"), date("2027-12-21"), date("2027-12-21"))
+	if err != nil || len(a) != len(b) {
+		t.Fatalf("%d and %d events, %v", len(a), len(b), err)
+	}
+	for i := range a {
+		if !a[i].Start.Equal(b[i].Start) || a[i].DayLength != b[i].DayLength {
+			t.Errorf("flat skyline %v, horizon 2 %v", a[i].Start, b[i].Start)
+		}
+	}
+}

@@ -10,11 +10,18 @@ import (
 )
 
 // Every kind of the configuration vocabulary has a computation here, and
-// gives at least one event or note over a year at a mid-latitude site.
+// gives at least one event or note over a year at a mid-latitude site (for
+// sun-hidden, one with a 30° peak due south, which hides the winter noon Sun).
 func TestEveryKindComputed(t *testing.T) {
-	s := site(t, "mid", 48.2, 16.4, "Europe/Vienna")
+	flat := site(t, "mid", 48.2, 16.4, "Europe/Vienna")
+	peak := site(t, "peak", 48.2, 16.4, "Europe/Vienna")
+	peak.Skyline = [][2]float64{{0, 0}, {170, 0}, {176, 30}, {184, 30}, {190, 0}}
 	sk := sky(t, "2027-01-01", "2027-12-31")
 	for _, example := range config.KindExamples {
+		s := flat
+		if example == "sun-hidden" {
+			s = peak
+		}
 		t.Run(example, func(t *testing.T) {
 			k := mustKinds(t, example)
 			entries, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{{Kind: k[0]}}, date("2027-01-01"), date("2027-12-31"))

@@ -77,7 +77,7 @@ func (c *collector) daylights(alt float64) ([]daylight, error) {
 // such stretch, saying until when.
 func (c *collector) lighting(k config.Kind) error {
 	spec := c.spec
-	alt := c.p.Observer.RiseSetAltitude()
+	alt := c.p.riseAlt()
 	if spec.Natural == config.NaturalCivil {
 		alt = astro.CivilTwilight
 	}

@@ -205,7 +205,7 @@ func (c *collector) sunTimes(k config.Kind) (*kindTimes, bool, error) {
 	}
 	alt := sk.alt
 	if alt == 0 {
-		alt = c.p.Observer.RiseSetAltitude()
+		alt = c.p.riseAlt()
 	}
 	th, err := c.threshold(alt)
 	if err != nil {

@@ -38,6 +38,7 @@ type Event struct {
 	SeasonLength time.Duration // seasons: time until the next season starts
 	Azimuth      float64       // sunrise/sunset/moonrise/moonset: direction, degrees from north through east
 	Low, High    float64       // golden-hour, blue-hour, sun-band: the altitude bounds, degrees
+	DirectSun    bool          // sunrise/sunset: DayLength is the direct Sun over a skyline
 	Illuminated  float64       // Moon events: illuminated fraction 0..1
 	Waxing       bool          // Moon events: the Moon is waxing
 	Lamp         time.Duration // lighting: length of the lamp period
@@ -74,6 +75,23 @@ type Note struct {
 type Place struct {
 	Observer astro.Observer
 	Location *time.Location
+	// Skyline, when set, is the horizon per direction: sunrise and sunset
+	// are the Sun's first appearance over it and last disappearance behind
+	// it, and day lengths count the time above it (direct Sun).
+	Skyline astro.Skyline
+}
+
+// skylineKey stands for the skyline in the collector's thresholds (no real
+// altitude is this high).
+const skylineKey = 1000.0
+
+// riseAlt is the threshold of sunrise and sunset: the geometric altitude of
+// the Sun's centre for a single horizon altitude, or skylineKey.
+func (p Place) riseAlt() float64 {
+	if len(p.Skyline) > 0 {
+		return skylineKey
+	}
+	return p.Observer.RiseSetAltitude()
 }
 
 // Sky computes events for any place from one shared ephemeris. It is safe
@@ -316,9 +334,11 @@ func (c *collector) noteSilent(k config.Kind, n0, m0 int) {
 func (c *collector) compute(k config.Kind) error {
 	switch k.Name {
 	case "sunrise":
-		return c.crossings(k, c.p.Observer.RiseSetAltitude(), astro.Rising, "sun-horizon")
+		return c.crossings(k, c.p.riseAlt(), astro.Rising, "sun-horizon")
 	case "sunset":
-		return c.crossings(k, c.p.Observer.RiseSetAltitude(), astro.Setting, "sun-horizon")
+		return c.crossings(k, c.p.riseAlt(), astro.Setting, "sun-horizon")
+	case "sun-hidden":
+		return c.hidden(k)
 	case "civil-dawn":
 		return c.crossings(k, astro.CivilTwilight, astro.Rising, "civil")
 	case "civil-dusk":
@@ -380,6 +400,12 @@ func (c *collector) prepare(alts ...float64) error {
 	var missing []float64
 	for _, a := range alts {
 		if _, ok := c.thresholds[a]; !ok && !slices.Contains(missing, a) {
+			if a == skylineKey {
+				if err := c.prepareSkyline(); err != nil {
+					return err
+				}
+				continue
+			}
 			missing = append(missing, a)
 		}
 	}
@@ -399,6 +425,34 @@ func (c *collector) prepare(alts ...float64) error {
 	for i, a := range missing {
 		c.thresholds[a] = &threshold{xs: lists[i], upFirst: h0 > a}
 	}
+	return nil
+}
+
+// prepareSkyline computes the Sun's crossings of the place's skyline.
+func (c *collector) prepareSkyline() error {
+	from, to := c.thresholdSpan()
+	o := c.p.Observer
+	xs, err := c.sky.eph.SunSkylineCrossings(o, c.p.Skyline, from, to)
+	if err != nil {
+		return err
+	}
+	th := &threshold{xs: xs}
+	if len(xs) > 0 {
+		th.upFirst = xs[0].Direction == astro.Setting
+	} else {
+		h, err := c.sky.eph.SunAltitude(o, from)
+		if err != nil {
+			return err
+		}
+		az, err := c.sky.eph.SunAzimuth(o, from)
+		if err != nil {
+			return err
+		}
+		at := o
+		at.Horizon = c.p.Skyline.Altitude(az)
+		th.upFirst = h > at.RiseSetAltitude()
+	}
+	c.thresholds[skylineKey] = th
 	return nil
 }
 
@@ -468,16 +522,25 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 			xs = xs[1:]
 		}
 		crossed := false
-		for len(xs) > 0 && xs[0].Time.Before(end) {
+		keep := -1 // with a skyline: only the date's first appearance, last disappearance
+		if horizon && alt == skylineKey {
+			for j := 0; j < len(xs) && xs[j].Time.Before(end); j++ {
+				if xs[j].Direction == dir && (keep < 0 || dir == astro.Setting) {
+					keep = j
+				}
+			}
+		}
+		for j := 0; len(xs) > 0 && xs[0].Time.Before(end); j++ {
 			x := xs[0]
 			xs = xs[1:]
 			up, crossed = x.Direction == astro.Rising, true
-			if dir != 0 && x.Direction != dir {
+			if dir != 0 && x.Direction != dir || keep >= 0 && j != keep {
 				continue
 			}
 			e := Event{Kind: k, Start: x.Time, Direction: x.Direction, Date: d}
 			if horizon {
 				e.DayLength, e.DayChange = c.lengths[i+1], c.lengths[i+1]-c.lengths[i]
+				e.DirectSun = alt == skylineKey
 				if e.Azimuth, err = c.sky.eph.SunAzimuth(c.p.Observer, x.Time); err != nil {
 					return err
 				}
@@ -508,13 +571,46 @@ func (c *collector) dayStarts() []time.Time {
 	return c.starts
 }
 
+// hidden adds the spans during which the Sun, up over the skyline earlier
+// on the date and again later, is hidden behind it: a disappearance
+// followed by a reappearance on the same local date. A site without a
+// skyline has none.
+func (c *collector) hidden(k config.Kind) error {
+	if len(c.p.Skyline) == 0 {
+		return nil
+	}
+	th, err := c.threshold(skylineKey)
+	if err != nil {
+		return err
+	}
+	for i := 0; i+1 < len(th.xs); i++ {
+		a, b := th.xs[i], th.xs[i+1]
+		if a.Direction != astro.Setting || b.Direction != astro.Rising {
+			continue
+		}
+		d := localDate(a.Time, c.p.Location)
+		if !c.inRange(d) || !localDate(b.Time, c.p.Location).Equal(d) {
+			continue
+		}
+		if i == 0 || !localDate(th.xs[i-1].Time, c.p.Location).Equal(d) {
+			continue // no appearance before it on this date: the night
+		}
+		e := Event{Kind: k, Start: a.Time, End: b.Time, Date: d}
+		if e.Azimuth, err = c.sky.eph.SunAzimuth(c.p.Observer, a.Time); err != nil {
+			return err
+		}
+		c.events = append(c.events, e)
+	}
+	return nil
+}
+
 // dayLengths computes, once, the time the Sun's upper limb is above the
 // horizon on each local date first-1..last: the photoperiod.
 func (c *collector) dayLengths() error {
 	if c.lengths != nil {
 		return nil
 	}
-	l, err := c.above(c.p.Observer.RiseSetAltitude())
+	l, err := c.above(c.p.riseAlt())
 	c.lengths = l
 	return err
 }
@@ -574,7 +670,7 @@ type Profile struct {
 func (s *Sky) Profiles(p Place, first, last time.Time) ([]Profile, error) {
 	c := &collector{ctx: context.Background(), sky: s, p: p, first: civil(first), last: civil(last)}
 	var cols [4][]time.Duration
-	for i, alt := range []float64{p.Observer.RiseSetAltitude(), astro.CivilTwilight, astro.NauticalTwilight, astro.AstronomicalTwilight} {
+	for i, alt := range []float64{p.riseAlt(), astro.CivilTwilight, astro.NauticalTwilight, astro.AstronomicalTwilight} {
 		l, err := c.above(alt)
 		if err != nil {
 			return nil, err

@@ -162,6 +162,7 @@ func where(s *config.Site) string {
 var plainNames = map[string]string{
 	"sunrise":           "Sunrise",
 	"sunset":            "Sunset",
+	"sun-hidden":        "Sun behind the skyline",
 	"solar-noon":        "Solar noon",
 	"civil-dawn":        "Civil dawn",
 	"civil-dusk":        "Civil dusk",
@@ -203,6 +204,11 @@ var twilightMeaning = map[string]string{
 
 // horizonMeaning is the definition line of sunrise and sunset; %s is the
 // refraction used.
+var skylineMeaning = map[string]string{
+	"sunrise": "The Sun's upper limb first appears over the site's skyline today (%s for the skyline's altitude).\n",
+	"sunset":  "The Sun's upper limb last disappears behind the site's skyline today (%s for the skyline's altitude).\n",
+}
+
 var horizonMeaning = map[string]string{
 	"sunrise": "The Sun's upper limb appears on the horizon (%s).\n",
 	"sunset":  "The Sun's upper limb disappears below the horizon (%s).\n",
@@ -266,14 +272,26 @@ func describe(s *siteInfo, e Event) (string, string) {
 	switch e.Kind.Name {
 	case "sunrise", "sunset":
 		b.WriteString(title + " at " + at + ": the Sun " + bearing(e) + ".\n")
-		b.WriteString("Day length " + hm(e.DayLength) + " (" + change(e.DayChange) + " from the day before).\n")
-		fmt.Fprintf(&b, horizonMeaning[e.Kind.Name], s.refraction)
+		if e.DirectSun {
+			b.WriteString("Direct Sun over the skyline " + hm(e.DayLength) + " (" + change(e.DayChange) + " from the day before).\n")
+		} else {
+			b.WriteString("Day length " + hm(e.DayLength) + " (" + change(e.DayChange) + " from the day before).\n")
+		}
+		if e.DirectSun {
+			fmt.Fprintf(&b, skylineMeaning[e.Kind.Name], s.refraction)
+		} else {
+			fmt.Fprintf(&b, horizonMeaning[e.Kind.Name], s.refraction)
+		}
 		b.WriteString(cautionLegal)
 	case "civil-dawn", "civil-dusk", "nautical-dawn", "nautical-dusk", "astronomical-dawn", "astronomical-dusk":
 		b.WriteString(title + " at " + at + ".\n" + twilightMeaning[e.Kind.Name])
 		if strings.HasPrefix(e.Kind.Name, "civil") {
 			b.WriteString("\n" + cautionLegal)
 		}
+	case "sun-hidden":
+		title = fmt.Sprintf("Sun behind the skyline for %s", hm(ToSecond(e.End).Sub(ToSecond(e.Start))))
+		fmt.Fprintf(&b, "The Sun goes behind the skyline at %s, towards %s (%.0f°), and comes out again at %s, %s.",
+			at, astro.CompassPoint(e.Azimuth), e.Azimuth, localClock(e.End, loc), s.where)
 	case "solar-noon":
 		title = "Solar noon, Sun " + height(e.Altitude, "high")
 		fmt.Fprintf(&b, "Solar noon at %s, %s: the Sun crosses the meridian at %s altitude", at, s.where, degrees(e.Altitude))
@@ -582,6 +600,11 @@ func describeSummary(s *siteInfo, length, delta time.Duration, evs []Event, note
 	loc := s.TimeZone.Location
 	var b strings.Builder
 	title := fmt.Sprintf("Daylight %s", hm(length))
+	lengthName := "Day length"
+	if len(s.Skyline) > 0 {
+		title = fmt.Sprintf("Direct Sun %s", hm(length))
+		lengthName = "Direct Sun over the skyline (sunrise and sunset are its first appearance and last disappearance)"
+	}
 	for _, n := range notes {
 		t, _ := describeNote(s, n)
 		b.WriteString(t + ".\n")
@@ -589,6 +612,6 @@ func describeSummary(s *siteInfo, length, delta time.Duration, evs []Event, note
 	for _, e := range evs {
 		fmt.Fprintf(&b, "%s %s\n", plainNames[e.Kind.Name], ToMinute(e.Start).In(loc).Format("15:04 MST"))
 	}
-	fmt.Fprintf(&b, "Day length %s (%s from the day before), %s.\n%s", hm(length), change(delta), s.where, cautionLegal)
+	fmt.Fprintf(&b, "%s %s (%s from the day before), %s.\n%s", lengthName, hm(length), change(delta), s.where, cautionLegal)
 	return title, b.String()
 }

@@ -82,7 +82,7 @@ func TestCheckJSON(t *testing.T) {
 	if err := json.Unmarshal([]byte(out), &r); err != nil {
 		t.Fatalf("%v\n%s", err, out)
 	}
-	if !r.Valid || r.Configuration != "built-in demo" || len(r.Sites) != 4 || len(r.Feeds) == 0 || r.Problems != nil {
+	if !r.Valid || r.Configuration != "built-in demo" || len(r.Sites) != 5 || len(r.Feeds) == 0 || r.Problems != nil {
 		t.Fatalf("report %+v", r)
 	}
 	for _, f := range r.Feeds {

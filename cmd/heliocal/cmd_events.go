@@ -322,6 +322,7 @@ type jsonEvent struct {
 	Altitude  *float64 `json:"altitude_deg,omitempty"`
 	Distance  *float64 `json:"distance_au,omitempty"`
 	DayLength *float64 `json:"day_length_s,omitempty"`
+	DirectSun *float64 `json:"direct_sun_s,omitempty"`
 	Azimuth   *float64 `json:"azimuth_deg,omitempty"`
 	Lit       *float64 `json:"illuminated,omitempty"`
 	// Uncertainty is set on far-future seasons, apsides and phases.
@@ -387,7 +388,11 @@ func toJSONEvent(e feed.Event) jsonEvent {
 	switch e.Kind.Name {
 	case "photoperiod", "sunrise", "sunset", config.KindLighting, "daily-summary":
 		s := math.Round(e.DayLength.Seconds()*1000) / 1000
-		j.DayLength = &s
+		if e.DirectSun {
+			j.DirectSun = &s // time above the skyline, not sunrise to sunset
+		} else {
+			j.DayLength = &s
+		}
 	}
 	if e.Kind.Name == "daily-summary" {
 		j.DayChange = seconds(e.DayChange)

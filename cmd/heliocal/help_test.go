@@ -114,7 +114,7 @@ func TestCompletion(t *testing.T) {
 	}
 	check(complete("events", "--tz", "Pacific/Ch"), "Pacific/Chatham", "Pacific/Chuuk")
 	check(complete("events", "--tz", "europe/vien"), "Europe/Vienna")
-	check(complete("events", "--kinds", "sunrise,sun"), "sunrise,sunset", "sunrise,sun-band:", "sunrise,sun-altitude:")
+	check(complete("events", "--kinds", "sunrise,sun"), "sunrise,sunset", "sunrise,sun-hidden", "sunrise,sun-band:", "sunrise,sun-altitude:")
 	check(complete("events", "--kinds", "moon"), "moon-phases", "moonrise", "moonset", "moon-transit")
 	if zones := complete("events", "--tz", ""); len(zones) < 400 || zones[0] != "UTC" {
 		t.Errorf("%d zones offered, first %q", len(zones), zones[0])

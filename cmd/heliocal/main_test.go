@@ -157,7 +157,7 @@ func TestEventsAzimuth(t *testing.T) {
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, errOut)
 	}
-	if !strings.Contains(out, "azimuth_deg\n") || !strings.Contains(out, ",52.19\n") {
+	if !strings.Contains(out, "azimuth_deg,") || !strings.Contains(out, ",52.19,") {
 		t.Errorf("CSV without the azimuth column or the sunrise azimuth 52.19:\n%s", out)
 	}
 }

@@ -1,0 +1,221 @@
+package astro
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"time"
+)
+
+// Skyline rise and set: a site's visible horizon as altitudes per direction
+// (hills to the east, a building to the south-west), and the instants the
+// Sun's upper limb meets it in the direction where the Sun is.
+//
+// The skyline is given as points (azimuth from the north through the east,
+// apparent altitude, degrees), joined by straight lines in azimuth and
+// wrapping round at 360°. Where the skyline stands at apparent altitude S in
+// the Sun's direction A, the upper limb meets it when the centre's geometric
+// altitude is Observer{Horizon: S}.RiseSetAltitude(): S less the refraction
+// at S (Bennett's formula, Meeus eq. 16.4, scaled for the site's air) less
+// the semidiameter; a point at exactly 0° is a flat sea-level horizon with
+// the site's dip, as the single horizon altitude. So a skyline at one
+// altitude everywhere gives exactly the single-altitude results.
+//
+// The search: the threshold lies between the lowest and the highest of the
+// skyline's vertices, so the Sun can meet the skyline only while its own
+// altitude is between those two thresholds; those windows are bracketed by
+// the ordinary crossing search, widened by a minute on each side, and each is
+// scanned every 30 s for changes of side, each change being refined by
+// bisection to 1 ms. A passage behind a
+// narrow peak that is over in less than a scan step may be missed.
+
+// SkyPoint is one point of a skyline: apparent altitude (degrees) in the
+// direction Azimuth (degrees from the north through the east).
+type SkyPoint struct {
+	Azimuth, Altitude float64
+}
+
+// Skyline is a site's visible horizon, sorted by azimuth (see NewSkyline).
+type Skyline []SkyPoint
+
+// NewSkyline checks and sorts skyline points: at least one, azimuths within
+// 0..360 (360 is 0) and distinct, altitudes within −5..45°. A single point
+// is a skyline at one altitude in every direction.
+func NewSkyline(points []SkyPoint) (Skyline, error) {
+	if len(points) == 0 {
+		return nil, &InputError{"skyline", 0, "needs at least one [azimuth, altitude] point"}
+	}
+	s := make(Skyline, len(points))
+	for i, p := range points {
+		if !(p.Azimuth >= 0 && p.Azimuth <= 360) {
+			return nil, &InputError{"skyline azimuth", p.Azimuth, "must be within 0..360 degrees from the north through the east"}
+		}
+		if !(p.Altitude >= -5 && p.Altitude <= 45) {
+			return nil, &InputError{"skyline altitude", p.Altitude, "must be within -5..45 degrees"}
+		}
+		s[i] = SkyPoint{math.Mod(p.Azimuth, 360), p.Altitude}
+	}
+	sort.SliceStable(s, func(i, j int) bool { return s[i].Azimuth < s[j].Azimuth })
+	for i := 1; i < len(s); i++ {
+		if s[i].Azimuth == s[i-1].Azimuth {
+			return nil, &InputError{"skyline azimuth", s[i].Azimuth, "appears twice (0 and 360 are the same direction)"}
+		}
+	}
+	return s, nil
+}
+
+// Altitude returns the skyline's altitude (degrees) in the direction az
+// (degrees), interpolated linearly between its points, round the circle.
+func (s Skyline) Altitude(az float64) float64 {
+	n := len(s)
+	switch n {
+	case 0:
+		return 0
+	case 1:
+		return s[0].Altitude
+	}
+	az = math.Mod(az, 360)
+	if az < 0 {
+		az += 360
+	}
+	i := sort.Search(n, func(i int) bool { return s[i].Azimuth > az }) // first point past az
+	a, b := s[(i-1+n)%n], s[i%n]
+	span := b.Azimuth - a.Azimuth
+	if span <= 0 {
+		span += 360
+	}
+	d := az - a.Azimuth
+	if d < 0 {
+		d += 360
+	}
+	return a.Altitude + (b.Altitude-a.Altitude)*d/span
+}
+
+// threshold returns the geometric altitude (degrees) of the Sun's centre at
+// which its upper limb meets a skyline at apparent altitude h for o.
+func (o Observer) threshold(h float64) float64 {
+	o.Horizon = h
+	return o.RiseSetAltitude()
+}
+
+// skylineStep is the scan step of the skyline search, seconds.
+const skylineStep = 30.0
+
+// SunSkylineCrossings returns every instant in [from, to) at which the
+// Sun's upper limb meets the skyline sky (Rising: it appears above it;
+// Setting: it disappears behind it), sorted, for the observer o (whose
+// Horizon is ignored). With several crossings on one day, the first Rising
+// is the Sun's first appearance, the last Setting its last disappearance,
+// and the pairs between are the times it is hidden behind the skyline. The
+// span must lie within Coverage().
+func (e *Ephemeris) SunSkylineCrossings(o Observer, sky Skyline, from, to time.Time) ([]Crossing, error) {
+	if len(sky) == 0 {
+		return nil, &InputError{"skyline", 0, "needs at least one point"}
+	}
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, p := range sky {
+		t := o.threshold(p.Altitude)
+		lo, hi = min(lo, t), max(hi, t)
+	}
+	if lo == hi { // one altitude everywhere: the ordinary search
+		return e.SunCrossings(o, lo, from, to)
+	}
+	if err := e.checkSpan(from, to); err != nil {
+		return nil, err
+	}
+	lists, err := e.SunCrossingsMany(o, []float64{lo, hi}, from, to)
+	if err != nil {
+		return nil, err
+	}
+	st := newSite(o)
+	a, b := unixSeconds(from), unixSeconds(to)
+	// f > 0: the upper limb is above the skyline.
+	f := func(sec float64) float64 {
+		sh := e.sun.sinAltitude(st, sec)
+		az := e.sun.azimuth(st, sec) * rad2deg
+		return math.Asin(sh)*rad2deg - o.threshold(sky.Altitude(az))
+	}
+	// Windows where the Sun's centre is between lo and hi.
+	type mark struct {
+		t      float64
+		high   bool
+		rising bool
+	}
+	var marks []mark
+	for i, l := range lists {
+		for _, c := range l {
+			marks = append(marks, mark{unixSeconds(c.Time), i == 1, c.Direction == Rising})
+		}
+	}
+	sort.Slice(marks, func(i, j int) bool { return marks[i].t < marks[j].t })
+	h0 := math.Asin(e.sun.sinAltitude(st, a)) * rad2deg
+	inside := h0 > lo && h0 < hi
+	start := a
+	var windows [][2]float64
+	for _, m := range marks {
+		entering := (!m.high && m.rising) || (m.high && !m.rising)
+		if entering && !inside {
+			inside, start = true, m.t
+		} else if !entering && inside {
+			inside = false
+			windows = append(windows, [2]float64{start, m.t})
+		}
+	}
+	if inside {
+		windows = append(windows, [2]float64{start, b})
+	}
+	// Pad each window by two scan steps, so that a skyline crossing at a
+	// window's edge (the Sun leaving the window where the skyline is at its
+	// lowest or highest) is bracketed by clear signs, then merge overlaps.
+	merged := windows[:0]
+	for _, w := range windows {
+		w[0], w[1] = max(w[0]-2*skylineStep, a), min(w[1]+2*skylineStep, b)
+		if n := len(merged); n > 0 && w[0] <= merged[n-1][1] {
+			merged[n-1][1] = max(merged[n-1][1], w[1])
+			continue
+		}
+		merged = append(merged, w)
+	}
+	var out []Crossing
+	for _, w := range merged {
+		t0 := w[0]
+		f0 := f(t0)
+		for t0 < w[1] {
+			t1 := min(t0+skylineStep, w[1])
+			f1 := f(t1)
+			if (f0 > 0) != (f1 > 0) {
+				x0, x1, g0 := t0, t1, f0
+				for x1-x0 > 1e-3 {
+					m := 0.5 * (x0 + x1)
+					if gm := f(m); (gm > 0) == (g0 > 0) {
+						x0, g0 = m, gm
+					} else {
+						x1 = m
+					}
+				}
+				c := 0.5 * (x0 + x1)
+				if c >= a && c < b {
+					d := Setting
+					if f1 > 0 {
+						d = Rising
+					}
+					out = append(out, Crossing{Time: timeFromUnix(c), Direction: d})
+				}
+			}
+			t0, f0 = t1, f1
+		}
+	}
+	return out, nil
+}
+
+// String writes a skyline as "[az, alt] …" for messages.
+func (s Skyline) String() string {
+	out := ""
+	for i, p := range s {
+		if i > 0 {
+			out += " "
+		}
+		out += fmt.Sprintf("[%g, %g]", p.Azimuth, p.Altitude)
+	}
+	return out
+}

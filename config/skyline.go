@@ -1,0 +1,143 @@
+package config
+
+import (
+	"encoding/csv"
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"sort"
+	"strconv"
+	"strings"
+)
+
+// resolveHorizon reads a site's horizon key: one altitude (a number), a
+// skyline as a list of [azimuth, altitude] points, or the name of a CSV
+// file of such points (one "azimuth,altitude" per line; a header line and
+// lines starting with # are skipped; a relative name is read from the
+// working directory). It sets Horizon or Skyline and returns the problems.
+func (s *Site) resolveHorizon(path string) []FieldError {
+	switch v := s.HorizonValue.(type) {
+	case nil:
+		return nil
+	case float64:
+		s.Horizon = v
+		return nil
+	case int:
+		s.Horizon = float64(v)
+		return nil
+	case int64:
+		s.Horizon = float64(v)
+		return nil
+	case string:
+		pts, err := readSkylineCSV(v)
+		if err != nil {
+			return []FieldError{{Path: path, Value: v, Msg: err.Error(), Hint: `a CSV file of "azimuth,altitude" lines, e.g. "90,8"`}}
+		}
+		s.HorizonFile = v
+		return s.setSkyline(path, pts)
+	case []any:
+		pts := make([][2]float64, 0, len(v))
+		for j, e := range v {
+			p, ok := pointOf(e)
+			if !ok {
+				return []FieldError{{Path: fmt.Sprintf("%s[%d]", path, j), Value: fmt.Sprint(e), Msg: "must be a pair [azimuth, altitude] of numbers",
+					Hint: "e.g. horizon: [[0, 2.5], [90, 8], [180, 1], [270, 4]]"}}
+			}
+			pts = append(pts, p)
+		}
+		return s.setSkyline(path, pts)
+	}
+	return []FieldError{{Path: path, Value: showValue(s.HorizonValue), Msg: "must be a number, a list of [azimuth, altitude] points or a CSV file name",
+		Hint: "e.g. horizon: 1.5, or horizon: [[0, 2.5], [90, 8]]"}}
+}
+
+func pointOf(e any) ([2]float64, bool) {
+	l, ok := e.([]any)
+	if !ok || len(l) != 2 {
+		return [2]float64{}, false
+	}
+	var p [2]float64
+	for i, x := range l {
+		switch n := x.(type) {
+		case float64:
+			p[i] = n
+		case int:
+			p[i] = float64(n)
+		case int64:
+			p[i] = float64(n)
+		default:
+			return p, false
+		}
+	}
+	return p, true
+}
+
+// setSkyline checks the points (azimuth 0..360, 360 being 0, distinct;
+// altitude within MinHorizon..MaxHorizon), sorts them and sets Skyline.
+func (s *Site) setSkyline(path string, pts [][2]float64) []FieldError {
+	if len(pts) == 0 {
+		return []FieldError{{Path: path, Value: "[]", Msg: "an empty skyline", Hint: "give at least one [azimuth, altitude] point, or a number"}}
+	}
+	seen := map[float64]int{}
+	for j, p := range pts {
+		at := fmt.Sprintf("%s[%d]", path, j)
+		if !(p[0] >= 0 && p[0] <= 360) {
+			return []FieldError{{Path: at, Value: fmt.Sprintf("[%s, %s]", ftoa(p[0]), ftoa(p[1])), Msg: "azimuth must be within 0..360", Hint: "degrees from the north through the east: 90 is east, 180 south"}}
+		}
+		if !(p[1] >= MinHorizon && p[1] <= MaxHorizon) {
+			return []FieldError{{Path: at, Value: fmt.Sprintf("[%s, %s]", ftoa(p[0]), ftoa(p[1])), Msg: fmt.Sprintf("altitude must be within %g..%g degrees", MinHorizon, MaxHorizon), Hint: "the apparent altitude of the skyline in that direction; azimuth comes first"}}
+		}
+		az := p[0]
+		if az == 360 {
+			az = 0
+		}
+		if k, dup := seen[az]; dup {
+			return []FieldError{{Path: at, Value: fmt.Sprintf("[%s, %s]", ftoa(p[0]), ftoa(p[1])), Msg: fmt.Sprintf("azimuth %s given twice (also %s[%d]; 0 and 360 are the same)", ftoa(az), path, k), Hint: "one altitude per direction"}}
+		}
+		seen[az] = j
+		pts[j][0] = az
+	}
+	sort.Slice(pts, func(i, j int) bool { return pts[i][0] < pts[j][0] })
+	s.Skyline = pts
+	return nil
+}
+
+// readSkylineCSV reads "azimuth,altitude" lines.
+func readSkylineCSV(name string) ([][2]float64, error) {
+	f, err := os.Open(name)
+	if err != nil {
+		if errors.Is(err, os.ErrNotExist) {
+			return nil, errors.New("no such skyline file")
+		}
+		return nil, fmt.Errorf("cannot read the skyline file: %v", err)
+	}
+	defer f.Close()
+	r := csv.NewReader(f)
+	r.Comment = '#'
+	r.FieldsPerRecord = -1
+	r.TrimLeadingSpace = true
+	var pts [][2]float64
+	for line := 1; ; line++ {
+		rec, err := r.Read()
+		if err == io.EOF {
+			break
+		}
+		if err != nil {
+			return nil, fmt.Errorf("not CSV: %v", err)
+		}
+		if len(rec) != 2 {
+			return nil, fmt.Errorf("record %d: %d fields, want azimuth,altitude", line, len(rec))
+		}
+		a, err1 := strconv.ParseFloat(strings.TrimSpace(rec[0]), 64)
+		b, err2 := strconv.ParseFloat(strings.TrimSpace(rec[1]), 64)
+		if err1 != nil || err2 != nil {
+			if line == 1 && len(pts) == 0 {
+				continue // a header
+			}
+			return nil, fmt.Errorf("record %d: %q is not two numbers", line, strings.Join(rec, ","))
+		}
+		pts = append(pts, [2]float64{a, b})
+	}
+	return pts, nil
+}

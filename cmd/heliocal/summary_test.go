@@ -1,0 +1,42 @@
+package main
+
+import (
+	"encoding/json"
+	"strings"
+	"testing"
+)
+
+// A daily summary belongs to its date, as its all-day calendar entry does: no
+// start in JSON and no clock time in the table or the CSV. In Havana the
+// clocks skipped 14 March 2027's midnight (tz database, America/Havana), where
+// a summary used to show "01:00:00 CDT".
+func TestDailySummaryHasNoClockTime(t *testing.T) {
+	args := []string{"events", "--lat", "23.13", "--lon", "-82.38", "--tz", "America/Havana",
+		"--from", "2027-03-13", "--to", "2027-03-14", "--kinds", "daily-summary"}
+	code, out, errOut := runCLI(t, append(args, "--format", "json")...)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	var doc struct{ Events []map[string]any }
+	if err := json.Unmarshal([]byte(out), &doc); err != nil {
+		t.Fatal(err)
+	}
+	if len(doc.Events) != 2 {
+		t.Fatalf("events %v, want one summary per date", doc.Events)
+	}
+	for _, e := range doc.Events {
+		if _, ok := e["start"]; ok || e["date"] == nil || e["day_length_s"] == nil {
+			t.Errorf("summary %v: want a date, the day length and no start", e)
+		}
+	}
+	_, table, _ := runCLI(t, args...)
+	_, csvOut, _ := runCLI(t, append(args, "--format", "csv")...)
+	for name, text := range map[string]string{"table": table, "csv": csvOut} {
+		if strings.Contains(text, "00:00") || strings.Contains(text, "01:00") {
+			t.Errorf("%s shows a clock time for a daily summary:\n%s", name, text)
+		}
+	}
+	if strings.Count(table, "all day") != 2 {
+		t.Errorf("table does not mark the summaries all day:\n%s", table)
+	}
+}

@@ -30,3 +30,25 @@ func mustAddr(t *testing.T, s string) netip.Addr {
 	}
 	return a
 }
+
+func TestPageSection(t *testing.T) {
+	const site = "sites:\n  - {id: a, name: A, latitude: 47, longitude: 13, timezone: Europe/Vienna}\nfeeds:\n  - {id: f, title: F, site: a, kinds: [sunrise]}\n"
+	c, err := Parse(strings.NewReader("page:\n  title: Kestrel Ridge sky\n  builder: false\n"+site), "yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if c.Page.Title != "Kestrel Ridge sky" || c.Page.ShowBuilder() {
+		t.Errorf("page %+v: want the title and no builder", c.Page)
+	}
+	if c, _ := Parse(strings.NewReader(site), "yaml"); !c.Page.ShowBuilder() {
+		t.Error("without page.builder the builder is not shown")
+	}
+	_, err = Parse(strings.NewReader("page:\n  title: \""+strings.Repeat("x", 121)+"\"\n"+site), "yaml")
+	if err == nil || !strings.Contains(err.Error(), "page.title") || !strings.Contains(err.Error(), "longer than 120") {
+		t.Errorf("a 121-character title: %v", err)
+	}
+	_, err = Parse(strings.NewReader("page:\n  tilte: x\n"+site), "yaml")
+	if err == nil || !strings.Contains(err.Error(), "page.tilte") {
+		t.Errorf("a misspelt page key: %v", err)
+	}
+}

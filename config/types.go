@@ -6,6 +6,7 @@ import "time"
 // sites and the feeds computed for them.
 type Config struct {
 	Service Service `mapstructure:"service"`
+	Page    Page    `mapstructure:"page"`
 	Sites   []Site  `mapstructure:"sites"`
 	Feeds   []Feed  `mapstructure:"feeds"`
 }
@@ -26,6 +27,23 @@ type Service struct {
 	// believes when base_url is unset; empty: those headers are ignored.
 	TrustedProxies []string `mapstructure:"trusted_proxies"`
 }
+
+// Page is what the public page of `serve` (and the index of `publish`)
+// says about the feeds.
+type Page struct {
+	Title   string `mapstructure:"title"`   // heading; default "Sun and Moon calendars"
+	Intro   string `mapstructure:"intro"`   // a short introduction under the heading
+	Contact string `mapstructure:"contact"` // a contact line at the foot
+	// Caution replaces the default caution written for the public. Where a
+	// feed has kinds people use under rules (sunrise, sunset, twilight), the
+	// caution about legal use is shown as well.
+	Caution string `mapstructure:"caution"`
+	// Builder shows the calendar builder on the served page; default true.
+	Builder *bool `mapstructure:"builder"`
+}
+
+// ShowBuilder reports whether the served page shows the builder.
+func (p Page) ShowBuilder() bool { return p.Builder == nil || *p.Builder }
 
 // Site is a place on Earth.
 type Site struct {

@@ -166,6 +166,7 @@ func ftoa(f float64) string { return strconv.FormatFloat(f, 'g', -1, 64) }
 func (c *Config) Validate() error {
 	var ps problems
 	c.Service.validate(&ps)
+	c.Page.validate(&ps)
 
 	if len(c.Sites) == 0 {
 		ps.add("sites", "", "no sites: at least one site is needed", "add a site with id, latitude, longitude and timezone")

@@ -48,7 +48,7 @@ func builderServer(t *testing.T) *httptest.Server {
 		Adhoc:             adhocFeedFrom(set),
 		Preview:           adhocCalendarFrom(set),
 		AdhocDefaultKinds: []string{"sunrise", "sunset", "civil-dawn", "civil-dusk"},
-		Page:              serve.PageInfo{Title: "Fernhollow sky calendars", Intro: "Sun and Moon times for the farm and anyone nearby.", Contact: "Questions: the farm office, office@fernhollow.example"},
+		Page:              pageInfo(cfg),
 	})
 	if err != nil {
 		t.Fatal(err)

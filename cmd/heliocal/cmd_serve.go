@@ -150,6 +150,7 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 		Revision:          v.Revision,
 		Adhoc:             adhocFeedFrom(func() adhocSettings { return *adhoc.Load() }),
 		Preview:           adhocCalendarFrom(func() adhocSettings { return *adhoc.Load() }),
+		Page:              pageInfo(cfg),
 		AdhocDefaultKinds: []string{"sunrise", "sunset", "civil-dawn", "civil-dusk"},
 		AdhocMaxBytes:     cfg.Service.MaxFeedBytes,
 		Schedule:          cfg.Service.Refresh,
@@ -179,6 +180,7 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 				if next := reloadServe(ctx, g, log, srv, cfg, baseOf); next != nil {
 					cfg = next
 					setAdhoc(cfg)
+					srv.SetPage(pageInfo(cfg))
 					if err := srv.SetPublic(baseOf(cfg), cfg.Service.TrustedProxies); err != nil {
 						log.Error("the new base_url or trusted_proxies could not be applied", "err", err)
 					}

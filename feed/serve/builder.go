@@ -12,6 +12,7 @@ import (
 	"net/http"
 	"net/url"
 	"path"
+	"slices"
 	"strconv"
 	"strings"
 	"time"
@@ -31,7 +32,60 @@ type PageInfo struct {
 	Title   string // the page's heading; default "Sun and Moon calendars"
 	Intro   string // a short introduction under the heading
 	Contact string // a contact line at the foot
-	Caution string // the caution shown above the feeds; default publish.Caution
+	Caution string // the caution for the public; default DefaultCaution
+	// Legal adds LegalCaution: some feed has kinds people use under rules.
+	Legal     bool
+	NoBuilder bool // leave the builder off the page (the preview and table stay)
+	// Sites are the configured sites in configuration order, each with its
+	// feeds; empty: the feeds of feeds.json are listed.
+	Sites []PageSite
+}
+
+// PageSite is a site on the page with its feeds.
+type PageSite struct {
+	Name, Place string // the name, and where it is in words ("47.81° N, 13.06° E, 430 m, Europe/Vienna")
+	Feeds       []PageFeed
+}
+
+// PageFeed is a feed on the page.
+type PageFeed struct {
+	ID, Title, Description string
+	HTTPS                  string // set when the page is rendered
+}
+
+// DefaultCaution is the caution of the page, written for the public;
+// LegalCaution is added where times may be used under rules.
+const (
+	DefaultCaution = "These times are computed for the places given, not observed: hills, buildings, weather and the air " +
+		"shift them by minutes. Never look at the Sun, with or without binoculars or a telescope."
+	LegalCaution = "Where a rule depends on these times (hunting hours, aviation night, lighting-up times for vehicles), " +
+		"follow your local regulations and the official tables."
+)
+
+// LegalKind reports whether people use a kind's times under rules:
+// sunrise, sunset, the twilights and the daily summary.
+func LegalKind(kind string) bool {
+	switch {
+	case kind == "sunrise", kind == "sunset", kind == "daily-summary":
+		return true
+	}
+	for _, p := range []string{"civil-", "nautical-", "astronomical-"} {
+		if strings.HasPrefix(kind, p) {
+			return true
+		}
+	}
+	return false
+}
+
+// SetPage changes what the served page says, as after a reload.
+func (s *Server) SetPage(p PageInfo) {
+	if p.Title == "" {
+		p.Title = "Sun and Moon calendars"
+	}
+	if p.Caution == "" {
+		p.Caution = DefaultCaution
+	}
+	s.pageInfo.Store(&p)
 }
 
 // Routes of the builder.
@@ -53,6 +107,7 @@ var assetFiles embed.FS
 var (
 	pageTemplates = template.Must(template.New("").Funcs(template.FuncMap{
 		"webcal": func(u string) template.URL { return template.URL(webcal(u)) },
+		"legal":  func() string { return LegalCaution },
 	}).ParseFS(assetFiles, "assets/*.html"))
 	staticAssets = loadStatic()
 	hdrCSP       = hdr(contentSecurityPolicy)
@@ -356,8 +411,8 @@ type tableView struct {
 	Link, QR      template.URL
 	Days          []previewDay
 	From, To      string
-	Caution       string
 	Builder       bool
+	Legal         bool
 }
 
 func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
@@ -379,26 +434,12 @@ func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
 		Coords: fmt.Sprintf("%.4f, %.4f, %g m", q.Latitude, q.Longitude, q.Elevation),
 		HTTPS:  https, Webcal: webcal(https), Link: template.URL(page), QR: template.URL(qrDataURL(page)),
 		Days: days(cal, q), From: q.Start.Format(time.DateOnly), To: q.Start.AddDate(0, 0, q.Days-1).Format(time.DateOnly),
-		Caution: s.page().Caution, Builder: !s.opts.NoBuilder}
+		Builder: !s.page().NoBuilder, Legal: slices.ContainsFunc(q.Kinds, LegalKind)}
 	s.render(w, r, "table.html", v)
 }
 
 // page is the page settings with their defaults.
-func (s *Server) page() PageInfo {
-	p := s.opts.Page
-	if p.Title == "" {
-		p.Title = "Sun and Moon calendars"
-	}
-	if p.Caution == "" {
-		p.Caution = defaultCaution
-	}
-	return p
-}
-
-// defaultCaution is the public caution of the served page.
-const defaultCaution = "These times are computed for the coordinates given; hills, buildings, weather and the air shift them by " +
-	"minutes. Where a rule depends on them (hunting hours, aviation night, lighting-up times for vehicles), follow your " +
-	"local regulations and the official tables. Never look at the Sun, with or without binoculars or a telescope."
+func (s *Server) page() PageInfo { return *s.pageInfo.Load() }
 
 // homeFeed is one published feed on the page.
 type homeFeed struct {
@@ -408,15 +449,33 @@ type homeFeed struct {
 type homeView struct {
 	Page    PageInfo
 	Builder bool
+	Legal   bool
 	Groups  []kindGroup
-	Feeds   []homeFeed
+	Sites   []PageSite
+	Feeds   []homeFeed // when the page has no sites: feeds.json's
 	Today   string
 }
 
 func (s *Server) serveHome(w http.ResponseWriter, r *http.Request) {
-	v := homeView{Page: s.page(), Builder: !s.opts.NoBuilder, Groups: kindGroups, Today: s.now().Format(time.DateOnly)}
-	if snap := s.snap.Load(); snap != nil && snap.files["feeds.json"] != nil {
-		v.Feeds = feedLinks(snap.files["feeds.json"].data, s.baseFor(r))
+	p := s.page()
+	v := homeView{Page: p, Builder: !p.NoBuilder, Legal: p.Legal || !p.NoBuilder, Groups: kindGroups, Today: s.now().Format(time.DateOnly)}
+	snap := s.snap.Load()
+	base := s.baseFor(r)
+	if snap != nil && len(p.Sites) > 0 {
+		for _, site := range p.Sites {
+			ps := PageSite{Name: site.Name, Place: site.Place}
+			for _, f := range site.Feeds {
+				if snap.files[f.ID+".ics"] != nil { // only feeds being served
+					f.HTTPS = base + "feeds/" + url.PathEscape(f.ID) + ".ics"
+					ps.Feeds = append(ps.Feeds, f)
+				}
+			}
+			if len(ps.Feeds) > 0 {
+				v.Sites = append(v.Sites, ps)
+			}
+		}
+	} else if snap != nil && snap.files["feeds.json"] != nil {
+		v.Feeds = feedLinks(snap.files["feeds.json"].data, base)
 	}
 	s.render(w, r, "builder.html", v)
 }

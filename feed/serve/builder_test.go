@@ -127,3 +127,27 @@ func TestKindGroupsAreKinds(t *testing.T) {
 	}
 	_ = http.StatusOK
 }
+
+// The page lists the configured sites and feeds in the order given, with
+// descriptions, only feeds being served, and the legal caution when asked;
+// without the builder the form is gone.
+func TestPageSitesAndCaution(t *testing.T) {
+	s := builderTestServer(t)
+	s.SetPage(PageInfo{Title: "Kestrel Ridge sky", Contact: "Ask the warden", Legal: true, NoBuilder: true, Sites: []PageSite{
+		{Name: "Kestrel Ridge", Place: "46.50° N", Feeds: []PageFeed{{ID: "kestrel-ridge-moon", Title: "Moon", Description: "Moonrise and moonset."}}},
+		{Name: "Meadowbrook", Place: "47.00° N", Feeds: []PageFeed{{ID: "meadowbrook-sun", Title: "Sun"}, {ID: "not-built", Title: "Gone"}}},
+	}})
+	b := body(t, get(t, s.Handler(), "GET", "/"))
+	kestrel, meadow := strings.Index(b, "Kestrel Ridge</h3>"), strings.Index(b, "Meadowbrook</h3>")
+	if kestrel < 0 || meadow < kestrel {
+		t.Errorf("sites not in the order given (%d, %d)", kestrel, meadow)
+	}
+	for _, want := range []string{"Moonrise and moonset.", "http://example.com/feeds/kestrel-ridge-moon.ics", "webcal://example.com/feeds/meadowbrook-sun.ics", "Ask the warden", LegalCaution, DefaultCaution} {
+		if !strings.Contains(b, want) {
+			t.Errorf("the page lacks %q", want)
+		}
+	}
+	if strings.Contains(b, "not-built") || strings.Contains(b, `id="builder"`) {
+		t.Errorf("the page lists a feed not served, or shows the builder it should not")
+	}
+}

@@ -110,11 +110,10 @@ type Options struct {
 
 	// Preview computes the calendar of an ad-hoc query for the builder page
 	// (/), its preview (/at.json) and the day-by-day table (/at); nil turns
-	// them off: / is then the bundle's index.html. NoBuilder leaves the
-	// builder off the page while keeping the preview and table.
-	Preview   PreviewFunc
-	NoBuilder bool
-	// Page is what the builder page shows beside the feeds.
+	// them off: / is then the bundle's index.html.
+	Preview PreviewFunc
+	// Page is what the served page shows beside the builder (SetPage
+	// changes it).
 	Page PageInfo
 
 	// Adhoc renders an ad-hoc feed; nil turns the ad-hoc route off (404).
@@ -179,8 +178,9 @@ type Server struct {
 
 	cacheControl atomic.Pointer[[]string] // the Cache-Control header, from the refresh interval
 	snap         atomic.Pointer[snapshot]
-	public       publicHolder     // how links name the server (SetPublic)
-	now          func() time.Time // time.Now; tests fix "today"
+	public       publicHolder             // how links name the server (SetPublic)
+	pageInfo     atomic.Pointer[PageInfo] // what the served page says (SetPage)
+	now          func() time.Time         // time.Now; tests fix "today"
 
 	buildMu sync.Mutex // serialises builds, so an older build never overwrites a newer one
 	build   BuildFunc  // guarded by buildMu
@@ -264,6 +264,7 @@ func New(opts Options) (*Server, error) {
 	if err := s.SetPublic(opts.BaseURL, opts.TrustedProxies); err != nil {
 		return nil, err
 	}
+	s.SetPage(opts.Page)
 
 	s.limits = &adhocLimits{
 		parseKind:   opts.ParseKind,

@@ -1,0 +1,46 @@
+package main
+
+import (
+	"fmt"
+	"math"
+
+	"heliocal/config"
+	"heliocal/feed/serve"
+)
+
+// pageInfo is what the served page says for cfg: its page section, and its
+// sites with their feeds in configuration order.
+func pageInfo(cfg *config.Config) serve.PageInfo {
+	p := serve.PageInfo{Title: cfg.Page.Title, Intro: cfg.Page.Intro, Contact: cfg.Page.Contact, Caution: cfg.Page.Caution,
+		NoBuilder: !cfg.Page.ShowBuilder()}
+	for _, s := range cfg.Sites {
+		ps := serve.PageSite{Name: s.Name, Place: placeWords(s)}
+		for _, f := range cfg.Feeds {
+			if f.Site != s.ID {
+				continue
+			}
+			ps.Feeds = append(ps.Feeds, serve.PageFeed{ID: f.ID, Title: f.Title, Description: f.Description})
+			for _, k := range f.Kinds {
+				if serve.LegalKind(k.Kind.Name) {
+					p.Legal = true
+				}
+			}
+		}
+		if len(ps.Feeds) > 0 {
+			p.Sites = append(p.Sites, ps)
+		}
+	}
+	return p
+}
+
+// placeWords writes where a site is: "47.81° N, 13.06° E, 430 m, Europe/Vienna".
+func placeWords(s config.Site) string {
+	ns, ew := "N", "E"
+	if s.Latitude < 0 {
+		ns = "S"
+	}
+	if s.Longitude < 0 {
+		ew = "W"
+	}
+	return fmt.Sprintf("%.2f° %s, %.2f° %s, %.0f m, %s", math.Abs(s.Latitude), ns, math.Abs(s.Longitude), ew, s.Elevation, s.TimeZone.Name())
+}

@@ -74,6 +74,7 @@ var kindTable = []kindDef{
 	{name: "sunset", family: FamilySun, doc: "upper limb of the Sun on the horizon in the evening"},
 	{name: "solar-noon", family: FamilySun, doc: "the Sun crosses the meridian, its highest point of the day"},
 	{name: "sun-hidden", family: FamilySun, flags: flagSpan, doc: "spans between sunrise and sunset while the Sun is hidden behind the site's skyline (a peak, a building); needs a skyline"},
+	{name: "noon-clear", family: FamilySun, flags: flagYearly, doc: "the dates from which the noon Sun clears the site's skyline again, and from which it stays behind it (a valley in winter); needs a skyline"},
 	{name: "civil-dawn", family: FamilyTwilight, doc: "start of morning civil twilight (Sun 6° below the horizon)"},
 	{name: "civil-dusk", family: FamilyTwilight, doc: "end of evening civil twilight (Sun 6° below the horizon)"},
 	{name: "nautical-dawn", family: FamilyTwilight, doc: "start of morning nautical twilight (Sun 12° below the horizon)"},

@@ -12,7 +12,7 @@ import (
 // names are file syntax, so a change here is a change for every user.
 func TestKindVocabulary(t *testing.T) {
 	want := []string{
-		"sunrise", "sunset", "solar-noon", "sun-hidden",
+		"sunrise", "sunset", "solar-noon", "sun-hidden", "noon-clear",
 		"civil-dawn", "civil-dusk", "nautical-dawn", "nautical-dusk", "astronomical-dawn", "astronomical-dusk",
 		"golden-hour", "blue-hour", "sun-band", "sun-altitude",
 		"march-equinox", "june-solstice", "september-equinox", "december-solstice", "seasons", "cross-quarter",
@@ -138,7 +138,7 @@ func TestKindPredicates(t *testing.T) {
 	}
 	check("IsSpan", is(Kind.IsSpan), []string{"sun-hidden", "golden-hour", "blue-hour", "sun-band", "lighting", "dark-window", "solar-eclipse", "lunar-eclipse"})
 	check("IsMoon", is(Kind.IsMoon), []string{"new-moon", "first-quarter", "full-moon", "last-quarter", "moon-phases", "moonrise", "moonset", "moon-transit", "dark-window", "solar-eclipse", "lunar-eclipse"})
-	check("IsYearly", is(Kind.IsYearly), []string{"march-equinox", "june-solstice", "september-equinox", "december-solstice", "seasons", "cross-quarter", "perihelion", "aphelion", "new-moon", "first-quarter", "full-moon", "last-quarter", "moon-phases", "solar-eclipse", "lunar-eclipse"})
+	check("IsYearly", is(Kind.IsYearly), []string{"noon-clear", "march-equinox", "june-solstice", "september-equinox", "december-solstice", "seasons", "cross-quarter", "perihelion", "aphelion", "new-moon", "first-quarter", "full-moon", "last-quarter", "moon-phases", "solar-eclipse", "lunar-eclipse"})
 	check("IsGroup", is(Kind.IsGroup), []string{"seasons", "moon-phases"})
 	check("IsAllDay", is(Kind.IsAllDay), []string{"photoperiod", "daily-summary"})
 

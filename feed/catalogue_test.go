@@ -748,3 +748,33 @@ func TestSkylineSite(t *testing.T) {
 		}
 	}
 }
+
+// noon-clear at a site with a 25° peak due south (47.05° N): the noon Sun
+// goes behind it in mid-November and clears it again at the end of January;
+// on each date the Sun's noon altitude is within the day's change (0.4°) of
+// the altitude at which its upper limb meets a 25° skyline (the noon
+// altitude is 90° − φ + δ, Meeus ch. 13: δ ≈ −18° then).
+func TestNoonClear(t *testing.T) {
+	s := site(t, "valley", 47.05, 11.2, "Europe/Vienna")
+	s.Skyline = [][2]float64{{0, 3}, {100, 12}, {150, 4}, {176, 25}, {184, 25}, {190, 4}, {260, 15}, {300, 3}}
+	sk := sky(t, "2027-01-01", "2027-12-31")
+	ev, _, err := sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "noon-clear"), date("2027-01-01"), date("2027-12-31"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(ev) != 2 || ev[0].Direction != astro.Rising || ev[1].Direction != astro.Setting {
+		t.Fatalf("events %+v", ev)
+	}
+	if m := ev[0].Date.Month(); m != time.January && m != time.February {
+		t.Errorf("noon Sun back on %s", ev[0].Date.Format(time.DateOnly))
+	}
+	if m := ev[1].Date.Month(); m != time.November {
+		t.Errorf("noon Sun behind the peak from %s", ev[1].Date.Format(time.DateOnly))
+	}
+	limb := astro.Observer{Horizon: 25}.RiseSetAltitude()
+	for _, e := range ev {
+		if d := e.Altitude - limb; d < -0.4 || d > 0.4 {
+			t.Errorf("%s: noon altitude %.2f°, the limb meets 25° at %.2f°", e.Date.Format(time.DateOnly), e.Altitude, limb)
+		}
+	}
+}

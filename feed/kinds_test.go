@@ -19,7 +19,7 @@ func TestEveryKindComputed(t *testing.T) {
 	sk := sky(t, "2027-01-01", "2027-12-31")
 	for _, example := range config.KindExamples {
 		s := flat
-		if example == "sun-hidden" {
+		if example == "sun-hidden" || example == "noon-clear" {
 			s = peak
 		}
 		t.Run(example, func(t *testing.T) {

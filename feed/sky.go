@@ -339,6 +339,8 @@ func (c *collector) compute(k config.Kind) error {
 		return c.crossings(k, c.p.riseAlt(), astro.Setting, "sun-horizon")
 	case "sun-hidden":
 		return c.hidden(k)
+	case "noon-clear":
+		return c.noonClear(k)
 	case "civil-dawn":
 		return c.crossings(k, astro.CivilTwilight, astro.Rising, "civil")
 	case "civil-dusk":
@@ -569,6 +571,46 @@ func (c *collector) dayStarts() []time.Time {
 		}
 	}
 	return c.starts
+}
+
+// noonClear adds, for a site with a skyline, the dates whose solar noon
+// finds the Sun over the skyline when the date before's did not (Rising:
+// the noon Sun is back) and the reverse (Setting: from today it stays
+// behind the skyline at noon), at the instant of solar noon.
+func (c *collector) noonClear(k config.Kind) error {
+	if len(c.p.Skyline) == 0 {
+		return nil
+	}
+	th, err := c.threshold(skylineKey)
+	if err != nil {
+		return err
+	}
+	from, to := midnight(c.first.AddDate(0, 0, -1), c.p.Location), midnight(c.last.AddDate(0, 0, 1), c.p.Location)
+	noons, err := c.sky.eph.SunTransits(c.p.Observer, from, to)
+	if err != nil {
+		return err
+	}
+	xs, up := th.xs, th.upFirst
+	prev := -1 // unknown
+	for _, n := range noons {
+		for len(xs) > 0 && !xs[0].Time.After(n.Time) {
+			up = xs[0].Direction == astro.Rising
+			xs = xs[1:]
+		}
+		state := 0
+		if up {
+			state = 1
+		}
+		if d := localDate(n.Time, c.p.Location); prev >= 0 && state != prev && c.inRange(d) {
+			dir := astro.Setting
+			if up {
+				dir = astro.Rising
+			}
+			c.events = append(c.events, Event{Kind: k, Start: n.Time, Date: d, Direction: dir, Altitude: n.Altitude})
+		}
+		prev = state
+	}
+	return nil
 }
 
 // hidden adds the spans during which the Sun, up over the skyline earlier

@@ -163,6 +163,7 @@ var plainNames = map[string]string{
 	"sunrise":           "Sunrise",
 	"sunset":            "Sunset",
 	"sun-hidden":        "Sun behind the skyline",
+	"noon-clear":        "Noon Sun and the skyline",
 	"solar-noon":        "Solar noon",
 	"civil-dawn":        "Civil dawn",
 	"civil-dusk":        "Civil dusk",
@@ -287,6 +288,14 @@ func describe(s *siteInfo, e Event) (string, string) {
 		b.WriteString(title + " at " + at + ".\n" + twilightMeaning[e.Kind.Name])
 		if strings.HasPrefix(e.Kind.Name, "civil") {
 			b.WriteString("\n" + cautionLegal)
+		}
+	case "noon-clear":
+		if e.Direction == astro.Rising {
+			title = "The noon Sun clears the skyline again"
+			fmt.Fprintf(&b, "From today the Sun is over the skyline at solar noon (%s, %s high), %s.", at, degrees(e.Altitude), s.where)
+		} else {
+			title = "The noon Sun stays behind the skyline from today"
+			fmt.Fprintf(&b, "From today the Sun is behind the skyline at solar noon (%s, %s high), %s, until it clears it again.", at, degrees(e.Altitude), s.where)
 		}
 	case "sun-hidden":
 		title = fmt.Sprintf("Sun behind the skyline for %s", hm(ToSecond(e.End).Sub(ToSecond(e.Start))))

@@ -477,7 +477,7 @@ func details(e *feed.Event, loc *time.Location) string {
 	if e.Part != "" {
 		parts = append(parts, e.Part)
 	}
-	if e.Direction != 0 && (e.Kind.Name == "sun-altitude" || e.Kind.Name == "photoperiod") {
+	if e.Direction != 0 && (e.Kind.Name == "sun-altitude" || e.Kind.Name == "photoperiod" || e.Kind.Name == "noon-clear") {
 		parts = append(parts, direction(*e))
 	}
 	switch e.Kind.Name {

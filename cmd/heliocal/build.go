@@ -74,6 +74,8 @@ func build(cfg *config.Config, now time.Time, l layout) ([]publish.Source, publi
 		Generated:    time.Date(now.Year(), now.Month(), now.Day(), 0, 0, 0, 0, time.UTC),
 		Charts:       chartsFor(cfg, now),
 		MaxFeedBytes: cfg.Service.MaxFeedBytes,
+		Title:        cfg.Page.Title,
+		Page:         pageText(cfg),
 	}
 	opts.BaseURL = l.base
 	return srcs, opts, nil

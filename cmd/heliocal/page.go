@@ -5,6 +5,7 @@ import (
 	"math"
 
 	"heliocal/config"
+	"heliocal/feed/publish"
 	"heliocal/feed/serve"
 )
 
@@ -29,6 +30,18 @@ func pageInfo(cfg *config.Config) serve.PageInfo {
 		if len(ps.Feeds) > 0 {
 			p.Sites = append(p.Sites, ps)
 		}
+	}
+	return p
+}
+
+// pageText is the page section for the index of publish.
+func pageText(cfg *config.Config) *publish.PageText {
+	info := pageInfo(cfg)
+	p := &publish.PageText{Intro: info.Intro, Contact: info.Contact, Caution: cfg.Page.Caution, Legal: info.Legal,
+		Descriptions: map[string]string{}}
+	for _, f := range cfg.Feeds {
+		p.Order = append(p.Order, f.ID)
+		p.Descriptions[f.ID] = f.Description
 	}
 	return p
 }

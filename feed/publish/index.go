@@ -24,6 +24,8 @@ const Caution = "These times are computed from an astronomical model for the coo
 
 type indexView struct {
 	Title     string
+	Intro     string
+	Contact   string
 	Generated string
 	Feeds     int
 	Events    string
@@ -42,6 +44,7 @@ type siteView struct {
 
 type feedView struct {
 	ID, Title, File string
+	Description     string
 	Events, Size    string
 	HTTPS           string       // absolute or relative URL of the .ics
 	Webcal          template.URL // webcal:// URL; empty without a base URL
@@ -121,6 +124,9 @@ func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, 
 		events += f.Events
 		size += int64(f.Bytes)
 		fv := feedView{ID: f.ID, Title: f.Title, File: f.File, Events: formatCount(f.Events), Size: formatBytes(int64(f.Bytes))}
+		if opts.Page != nil {
+			fv.Description = opts.Page.Descriptions[f.ID]
+		}
 		if base != nil {
 			u := base.JoinPath(f.File)
 			fv.HTTPS = u.String()
@@ -150,6 +156,19 @@ func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, 
 		}
 		return sites[i].ID < sites[j].ID
 	})
+	if p := opts.Page; p != nil {
+		v.Intro, v.Contact, v.Caution = p.Intro, p.Contact, p.caution()
+		for id := range bySite {
+			sort.SliceStable(bySite[id], func(i, j int) bool { return p.rank(bySite[id][i].ID) < p.rank(bySite[id][j].ID) })
+		}
+		first := func(s feed.Site) int {
+			if f := bySite[s.ID]; len(f) > 0 {
+				return p.rank(f[0].ID)
+			}
+			return len(p.Order)
+		}
+		sort.SliceStable(sites, func(i, j int) bool { return first(sites[i]) < first(sites[j]) })
+	}
 	for i, s := range sites {
 		feeds := bySite[s.ID]
 		if len(feeds) == 0 {
@@ -228,6 +247,7 @@ svg .ll{text-anchor:end;fill:#1d2030;paint-order:stroke;stroke:#fbfaf6;stroke-wi
 <body>
 <header>
 <h1>{{.Title}}</h1>
+{{with .Intro}}<p class="intro">{{.}}</p>{{end}}
 <p>{{.Feeds}} calendar feeds, {{.Events}} events, {{.Size}}{{if .Generated}}, computed on {{.Generated}}{{end}}.
 {{if .Relative}}Subscribe by adding a feed's address (the link below, made absolute with this page's address) to your calendar app as a subscription.{{else}}The webcal link subscribes in your calendar app; the https address can be pasted into any app's "subscribe by URL".{{end}}
 Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{.}}{{end}}</p>
@@ -258,12 +278,12 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{
 {{end}}<table>
 <thead><tr><th>Feed</th><th class="num">Events</th><th class="num">Size</th><th>Subscribe</th></tr></thead>
 <tbody>
-{{range .Feeds}}<tr id="feed-{{.ID}}"><td><strong>{{.Title}}</strong><br/><code>{{.ID}}</code></td><td class="num">{{.Events}}</td><td class="num">{{.Size}}</td><td>{{if .Webcal}}<a href="{{.Webcal}}">webcal</a> · {{end}}<a href="{{.HTTPS}}">{{if .Webcal}}https{{else}}{{.File}}{{end}}</a>{{if .Webcal}}<br/><code>{{.HTTPS}}</code>{{end}}</td></tr>
+{{range .Feeds}}<tr id="feed-{{.ID}}"><td><strong>{{.Title}}</strong>{{with .Description}}<br/>{{.}}{{end}}<br/><code>{{.ID}}</code></td><td class="num">{{.Events}}</td><td class="num">{{.Size}}</td><td>{{if .Webcal}}<a href="{{.Webcal}}">webcal</a> · {{end}}<a href="{{.HTTPS}}">{{if .Webcal}}https{{else}}{{.File}}{{end}}</a>{{if .Webcal}}<br/><code>{{.HTTPS}}</code>{{end}}</td></tr>
 {{end}}</tbody>
 </table>
 </section>
 {{end}}
-<footer><p>Published by heliocal.</p></footer>
+<footer>{{with .Contact}}<p>{{.}}</p>{{end}}<p>Published by heliocal.</p></footer>
 </body>
 </html>
 `))

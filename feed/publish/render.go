@@ -70,6 +70,9 @@ type RenderOptions struct {
 	BaseURL string
 	// Title heads the index page; empty means "Sky calendars".
 	Title string
+	// Page, when set, gives the index the configuration's page texts and
+	// order; nil keeps the built-in caution and the sites by name.
+	Page *PageText
 	// Generated is the build's date written into feeds.json and the index. It
 	// must come from the inputs (e.g. the day the windows are counted from),
 	// never from the wall clock, so an unchanged night writes nothing. Zero

@@ -20,6 +20,7 @@ import (
 	"rsc.io/qr"
 
 	"heliocal/feed"
+	"heliocal/feed/publish"
 )
 
 // PreviewFunc computes the calendar of a validated ad-hoc query, through
@@ -56,10 +57,8 @@ type PageFeed struct {
 // DefaultCaution is the caution of the page, written for the public;
 // LegalCaution is added where times may be used under rules.
 const (
-	DefaultCaution = "These times are computed for the places given, not observed: hills, buildings, weather and the air " +
-		"shift them by minutes. Never look at the Sun, with or without binoculars or a telescope."
-	LegalCaution = "Where a rule depends on these times (hunting hours, aviation night, lighting-up times for vehicles), " +
-		"follow your local regulations and the official tables."
+	DefaultCaution = publish.PublicCaution
+	LegalCaution   = publish.LegalCaution
 )
 
 // LegalKind reports whether people use a kind's times under rules:

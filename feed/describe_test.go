@@ -147,8 +147,8 @@ func TestDurationWords(t *testing.T) {
 		}
 	}
 	for d, want := range map[time.Duration]string{-32 * time.Second: "−32 s", 64 * time.Second: "+1 min 04 s", 0: "+0 s"} {
-		if got := change(d); got != want {
-			t.Errorf("change(%v) = %q, want %q", d, got, want)
+		if got := Change(d); got != want {
+			t.Errorf("Change(%v) = %q, want %q", d, got, want)
 		}
 	}
 }

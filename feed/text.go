@@ -89,9 +89,9 @@ func hm(d time.Duration) string {
 	return strconv.Itoa(h) + " h " + twoDigits(m) + " min"
 }
 
-// change formats a signed day-length change as "+1 min 30 s", "−2 min 05 s"
+// Change formats a signed day-length change as "+1 min 30 s", "−2 min 05 s"
 // or "−32 s".
-func change(d time.Duration) string {
+func Change(d time.Duration) string {
 	sign := "+"
 	if d < 0 {
 		sign, d = "−", -d
@@ -99,8 +99,11 @@ func change(d time.Duration) string {
 	d = d.Round(time.Second)
 	m := int(d / time.Minute)
 	s := int((d % time.Minute) / time.Second)
-	if m == 0 {
+	switch {
+	case m == 0:
 		return sign + strconv.Itoa(s) + " s"
+	case m >= 60: // the first day after polar night: "+1 h 42 min 55 s", not "+102 min"
+		return sign + strconv.Itoa(m/60) + " h " + twoDigits(m%60) + " min " + twoDigits(s) + " s"
 	}
 	return sign + strconv.Itoa(m) + " min " + twoDigits(s) + " s"
 }
@@ -274,9 +277,9 @@ func describe(s *siteInfo, e Event) (string, string) {
 	case "sunrise", "sunset":
 		b.WriteString(title + " at " + at + ": the Sun " + bearing(e) + ".\n")
 		if e.DirectSun {
-			b.WriteString("Direct Sun over the skyline " + hm(e.DayLength) + " (" + change(e.DayChange) + " from the day before).\n")
+			b.WriteString("Direct Sun over the skyline " + hm(e.DayLength) + " (" + Change(e.DayChange) + " from the day before).\n")
 		} else {
-			b.WriteString("Day length " + hm(e.DayLength) + " (" + change(e.DayChange) + " from the day before).\n")
+			b.WriteString("Day length " + hm(e.DayLength) + " (" + Change(e.DayChange) + " from the day before).\n")
 		}
 		if e.DirectSun {
 			fmt.Fprintf(&b, skylineMeaning[e.Kind.Name], s.refraction)
@@ -359,7 +362,7 @@ func describe(s *siteInfo, e Event) (string, string) {
 		}
 		fmt.Fprintf(&b, "%s today at %s: the Sun is up for %s (%s from the day before), sunrise to sunset.\n"+
 			"Lighting programs for greenhouses and livestock are set by this threshold.",
-			title, s.Name, hm(e.DayLength), change(e.DayChange))
+			title, s.Name, hm(e.DayLength), Change(e.DayChange))
 	case "solar-eclipse", "lunar-eclipse":
 		return describeEclipse(s, e)
 	default:
@@ -621,6 +624,6 @@ func describeSummary(s *siteInfo, length, delta time.Duration, evs []Event, note
 	for _, e := range evs {
 		fmt.Fprintf(&b, "%s %s\n", plainNames[e.Kind.Name], ToMinute(e.Start).In(loc).Format("15:04 MST"))
 	}
-	fmt.Fprintf(&b, "%s %s (%s from the day before), %s.\n%s", lengthName, hm(length), change(delta), s.where, cautionLegal)
+	fmt.Fprintf(&b, "%s %s (%s from the day before), %s.\n%s", lengthName, hm(length), Change(delta), s.where, cautionLegal)
 	return title, b.String()
 }

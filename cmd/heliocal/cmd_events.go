@@ -484,7 +484,7 @@ func details(e *feed.Event, loc *time.Location) string {
 	case "sunrise", "sunset", "photoperiod", config.KindLighting:
 		parts = append(parts, "day length "+words(e.DayLength.Round(time.Second)))
 	case "daily-summary":
-		parts = append(parts, "day length "+words(e.DayLength.Round(time.Second))+", change "+change(e.DayChange))
+		parts = append(parts, "day length "+words(e.DayLength.Round(time.Second))+", change "+feed.Change(e.DayChange))
 	}
 	if hasAzimuth(*e) {
 		parts = append(parts, fmt.Sprintf("azimuth %.1f° (%s)", e.Azimuth, astro.CompassPoint(e.Azimuth)))

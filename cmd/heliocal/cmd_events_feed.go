@@ -382,13 +382,3 @@ func writeEventsICS(ctx context.Context, w io.Writer, s *config.Site, specs []co
 	_, err = w.Write(data)
 	return err
 }
-
-// change writes a signed duration as "+1 min 30 s" or "−2 min 05 s".
-func change(d time.Duration) string {
-	sign := "+"
-	if d < 0 {
-		sign, d = "−", -d
-	}
-	d = d.Round(time.Second)
-	return fmt.Sprintf("%s%d min %02d s", sign, int(d/time.Minute), int(d%time.Minute/time.Second))
-}

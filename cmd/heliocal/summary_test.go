@@ -40,3 +40,18 @@ func TestDailySummaryHasNoClockTime(t *testing.T) {
 		t.Errorf("table does not mark the summaries all day:\n%s", table)
 	}
 }
+
+// The table words a day-length change as the feeds do: at 78.22° N the Sun
+// first rises again on 16 February 2027 after the polar night (common
+// practice: Longyearbyen's sun returns in mid-February), a change of over
+// an hour from a day of 0 s, "+1 h 42 min 55 s" rather than "+102 min".
+func TestTableDayChangeInHours(t *testing.T) {
+	code, out, errOut := runCLI(t, "events", "--lat", "78.22", "--lon", "15.65", "--tz", "Arctic/Longyearbyen",
+		"--from", "2027-02-15", "--to", "2027-02-16", "--kinds", "daily-summary")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	if !strings.Contains(out, "change +0 s") || !strings.Contains(out, "change +1 h ") || strings.Contains(out, "102 min") {
+		t.Errorf("table does not word the changes as the feeds do:\n%s", out)
+	}
+}

@@ -120,7 +120,8 @@ func save(t *testing.T, ctx context.Context, name string, take chromedp.Action[[
 }
 
 // layoutProblems lists what is wrong with the page at the current width:
-// horizontal scrolling, and inputs without a label.
+// horizontal scrolling, inputs without a label, controls the keyboard
+// cannot reach.
 const layoutProblems = `(() => {
   const out = [];
   const w = document.documentElement.clientWidth;
@@ -129,6 +130,7 @@ const layoutProblems = `(() => {
     if (el.type === "hidden") continue;
     const named = (el.labels && el.labels.length > 0) || el.getAttribute("aria-label") || (el.tagName === "BUTTON" && el.textContent.trim());
     if (!named) out.push("no label: " + (el.id || el.outerHTML.slice(0, 60)));
+    if (el.tabIndex < 0 || el.disabled) out.push("not reachable from the keyboard: " + (el.id || el.outerHTML.slice(0, 60)));
   }
   return out;
 })()`
@@ -267,6 +269,14 @@ func TestBrowserBuilder(t *testing.T) {
 	}
 	// What a phone shows once the place is chosen: the result.
 	save(t, ctx, "result-390.png", chromedp.Screenshot(id("result")))
+
+	// A kind is chosen from the keyboard: space on its checkbox.
+	if err := chromedp.Do(ctx, chromedp.Focus(id("k-blue-hour")), chromedp.SendKeys(id("k-blue-hour"), " ")); err != nil {
+		t.Fatal(err)
+	}
+	if on, err := chromedp.Run(ctx, chromedp.Evaluate[bool](`document.getElementById("k-blue-hour").checked`)); err != nil || !on {
+		t.Errorf("space on the blue-hour checkbox did not tick it (%v)", err)
+	}
 
 	// The shareable page: the same days as a printable table.
 	if err := chromedp.Do(ctx,

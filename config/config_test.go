@@ -106,6 +106,7 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-base-url-scheme.yaml", "service.base_url", "ftp://sky.example.org/calendars", "must be an absolute http or https URL", "", 0},
 		{"bad-listen.yaml", "service.listen", "8080", "must be host:port", "", 0},
 		{"bad-max-feed-bytes.yaml", "service.max_feed_bytes", "-1", "must not be negative", "", 0},
+		{"bad-oversize.yaml", "service.oversize", "shrink", "must be warn, trim or fail", "", 0},
 		{"unknown-key.yaml", "sites[0].lattitude", "lattitude", "unknown key", `did you mean "latitude"?`, 0},
 		{"unknown-top-key.yaml", "feed", "feed", "unknown key", `did you mean "feeds"?`, 0},
 		{"bad-bool.yaml", "feeds[0].utc", `"yes"`, "must be true or false", "", 0},

@@ -344,6 +344,9 @@ func applyDefaults(c *Config, explicit map[int][2]bool) {
 	if s.MaxFeedBytes == 0 {
 		s.MaxFeedBytes = DefaultMaxFeedBytes
 	}
+	if s.Oversize == "" {
+		s.Oversize = OversizeWarn
+	}
 	for i := range c.Sites {
 		if c.Sites[i].Name == "" {
 			c.Sites[i].Name = c.Sites[i].ID

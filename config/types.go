@@ -26,6 +26,11 @@ type Service struct {
 	// prefixes) whose X-Forwarded-Host and X-Forwarded-Proto headers serve
 	// believes when base_url is unset; empty: those headers are ignored.
 	TrustedProxies []string `mapstructure:"trusted_proxies"`
+	// Oversize is what publish and serve do with a feed over MaxFeedBytes:
+	// "warn" (default: publish it and say so), "trim" (shorten its window
+	// from the far end until it fits, and say how far it reaches) or "fail"
+	// (publish exits 1 naming the feed and its size).
+	Oversize string `mapstructure:"oversize"`
 }
 
 // Page is what the public page of `serve` (and the index of `publish`)
@@ -44,6 +49,13 @@ type Page struct {
 
 // ShowBuilder reports whether the served page shows the builder.
 func (p Page) ShowBuilder() bool { return p.Builder == nil || *p.Builder }
+
+// Oversize policies (Service.Oversize).
+const (
+	OversizeWarn = "warn"
+	OversizeTrim = "trim"
+	OversizeFail = "fail"
+)
 
 // Site is a place on Earth.
 type Site struct {

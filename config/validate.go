@@ -263,6 +263,11 @@ func (s *Service) validate(ps *problems) {
 	if s.MaxFeedBytes < 0 {
 		ps.add("service.max_feed_bytes", strconv.Itoa(s.MaxFeedBytes), "must not be negative", "leave it out for 1000000")
 	}
+	switch s.Oversize {
+	case OversizeWarn, OversizeTrim, OversizeFail, "":
+	default:
+		ps.add("service.oversize", s.Oversize, "must be warn, trim or fail", "warn publishes and says so; trim shortens the window; fail stops")
+	}
 }
 
 // CheckListen tells what is wrong with a listen address such as ":8080"

@@ -112,7 +112,7 @@ func (sky *Sky) Calendar(ctx context.Context, s *config.Site, f *config.Feed, fi
 	cal := &Calendar{
 		ID:          f.ID,
 		Title:       f.Title,
-		Description: f.Description,
+		Description: CalendarDescription(f),
 		Site:        SiteOf(s),
 		UTC:         f.UTC,
 		Color:       f.Color,

@@ -321,26 +321,41 @@ func TestKindOptions(t *testing.T) {
 	}
 }
 
-// Sunrise and sunset descriptions carry the caution about legal times;
-// golden hour and solar noon warn about looking at the Sun.
+// The caution about legal times is in every calendar's description, once;
+// of the entries only civil dawn and dusk (limits of aviation night in many
+// rules) repeat it, not every sunrise. Golden hour and solar noon warn
+// about looking at the Sun.
 func TestCautions(t *testing.T) {
 	s := site(t, "mid", 48.2, 16.4, "Europe/Vienna")
 	sk := sky(t, "2027-06-01", "2027-06-01")
 	specs := []config.KindSpec{}
-	for _, k := range mustKinds(t, "sunrise", "civil-dusk", "golden-hour", "solar-noon") {
+	for _, k := range mustKinds(t, "sunrise", "civil-dusk", "golden-hour", "solar-noon", "daily-summary") {
 		specs = append(specs, config.KindSpec{Kind: k})
 	}
-	entries, err := sk.Entries(context.Background(), s, "f", specs, date("2027-06-01"), date("2027-06-01"))
+	f := &config.Feed{ID: "f", Description: "Our own words.", Kinds: specs}
+	cal, err := sk.Calendar(context.Background(), s, f, date("2027-06-01"), date("2027-06-01"), Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
-	for _, e := range entries {
-		want := cautionEyes
-		if e.Kind == "sunrise" || e.Kind == "civil-dusk" {
-			want = "local rules decide"
-		}
-		if !strings.Contains(e.Description, want) {
-			t.Errorf("%s: description lacks %q:\n%s", e.Kind, want, e.Description)
+	if cal.Description != "Our own words.\n\n"+CalendarCaution || !strings.Contains(CalendarCaution, "local rules") ||
+		!strings.Contains(CalendarCaution, "hunting hours") || !strings.Contains(CalendarCaution, cautionEyes) {
+		t.Errorf("calendar description %q", cal.Description)
+	}
+	for _, e := range cal.Entries {
+		legal := strings.Contains(e.Description, "local rules decide")
+		switch e.Kind {
+		case "civil-dusk":
+			if !legal {
+				t.Errorf("%s: description lacks the legal caution:\n%s", e.Kind, e.Description)
+			}
+		case "golden-hour", "solar-noon":
+			if !strings.Contains(e.Description, cautionEyes) {
+				t.Errorf("%s: description lacks %q:\n%s", e.Kind, cautionEyes, e.Description)
+			}
+		default:
+			if legal {
+				t.Errorf("%s: the caution repeated on the entry:\n%s", e.Kind, e.Description)
+			}
 		}
 	}
 }

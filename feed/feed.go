@@ -105,4 +105,8 @@ type Calendar struct {
 	// inputs (e.g. the window start), never from the wall clock.
 	Stamp   time.Time
 	Entries []Entry
+	// TrimmedTo, when set, is the last local date (00:00 UTC) the entries
+	// reach after the window was shortened to keep the feed under its size
+	// limit.
+	TrimmedTo time.Time
 }

@@ -206,16 +206,22 @@ var twilightMeaning = map[string]string{
 	"astronomical-dusk": "Astronomical dusk: the Sun's centre is setting through 18° below the horizon; from now the Sun no longer brightens the sky (the Moon and city lights may).",
 }
 
-// horizonMeaning is the definition line of sunrise and sunset; %s is the
-// refraction used.
-var skylineMeaning = map[string]string{
-	"sunrise": "The Sun's upper limb first appears over the site's skyline today (%s for the skyline's altitude).\n",
-	"sunset":  "The Sun's upper limb last disappears behind the site's skyline today (%s for the skyline's altitude).\n",
-}
+// CalendarCaution is the caution every calendar carries once, in its
+// description: the times are computed, and where a time has legal weight
+// local rules decide. Entries repeat the legal part only where their time
+// is itself a limit in such rules (civil dawn and dusk: aviation night).
+const CalendarCaution = "Caution: times are computed for planning from the site's coordinates, a flat or " +
+	"configured horizon and standard atmospheric refraction; real conditions move them by a minute or more. " +
+	"Where a time has legal weight (hunting hours, aviation night, lighting-up times, curfews) local rules " +
+	"and their official tables decide, not this calendar. " + cautionEyes
 
-var horizonMeaning = map[string]string{
-	"sunrise": "The Sun's upper limb appears on the horizon (%s).\n",
-	"sunset":  "The Sun's upper limb disappears below the horizon (%s).\n",
+// CalendarDescription is a calendar's description: the feed's own text and
+// CalendarCaution.
+func CalendarDescription(f *config.Feed) string {
+	if f.Description == "" {
+		return CalendarCaution
+	}
+	return f.Description + "\n\n" + CalendarCaution
 }
 
 // categories are the CATEGORIES of a kind: a family word and the kind's name.
@@ -275,18 +281,24 @@ func describe(s *siteInfo, e Event) (string, string) {
 	title := plainNames[e.Kind.Name]
 	switch e.Kind.Name {
 	case "sunrise", "sunset":
-		b.WriteString(title + " at " + at + ": the Sun " + bearing(e) + ".\n")
-		if e.DirectSun {
-			b.WriteString("Direct Sun over the skyline " + hm(e.DayLength) + " (" + Change(e.DayChange) + " from the day before).\n")
-		} else {
-			b.WriteString("Day length " + hm(e.DayLength) + " (" + Change(e.DayChange) + " from the day before).\n")
+		verb, refr := "disappears", s.refraction
+		if e.Kind.Name == "sunrise" {
+			verb = "appears"
 		}
 		if e.DirectSun {
-			fmt.Fprintf(&b, skylineMeaning[e.Kind.Name], s.refraction)
-		} else {
-			fmt.Fprintf(&b, horizonMeaning[e.Kind.Name], s.refraction)
+			verb, refr = "last disappears behind the site's skyline", s.refraction+" for the skyline's altitude"
+			if e.Kind.Name == "sunrise" {
+				verb = "first appears over the site's skyline"
+			}
 		}
-		b.WriteString(cautionLegal)
+		b.WriteString(title + " at " + at + ": the Sun's upper limb " + verb + " at " + azimuthText(e) + " (" + refr + ").\n")
+		if e.DirectSun {
+			b.WriteString("Direct Sun over the skyline " + hm(e.DayLength) + " (" + Change(e.DayChange) + " from the day before).")
+		} else {
+			b.WriteString("Day length " + hm(e.DayLength) + " (" + Change(e.DayChange) + " from the day before).")
+		}
+		// the caution is in the calendar's description (CalendarCaution),
+		// not repeated every day
 	case "civil-dawn", "civil-dusk", "nautical-dawn", "nautical-dusk", "astronomical-dawn", "astronomical-dusk":
 		b.WriteString(title + " at " + at + ".\n" + twilightMeaning[e.Kind.Name])
 		if strings.HasPrefix(e.Kind.Name, "civil") {
@@ -431,7 +443,13 @@ func bearing(e Event) string {
 	if e.Direction == astro.Rising {
 		verb = "rises"
 	}
-	return fmt.Sprintf("%s at %.0f°, %s", verb, math.Round(e.Azimuth)-360*math.Floor(math.Round(e.Azimuth)/360), astro.CompassPoint(e.Azimuth))
+	return verb + " at " + azimuthText(e)
+}
+
+// azimuthText is an event's azimuth in whole degrees with its compass
+// point, e.g. "125°, south-east".
+func azimuthText(e Event) string {
+	return fmt.Sprintf("%.0f°, %s", math.Round(e.Azimuth)-360*math.Floor(math.Round(e.Azimuth)/360), astro.CompassPoint(e.Azimuth))
 }
 
 var crossQuarterBetween = map[string]string{
@@ -624,6 +642,6 @@ func describeSummary(s *siteInfo, length, delta time.Duration, evs []Event, note
 	for _, e := range evs {
 		fmt.Fprintf(&b, "%s %s\n", plainNames[e.Kind.Name], ToMinute(e.Start).In(loc).Format("15:04 MST"))
 	}
-	fmt.Fprintf(&b, "%s %s (%s from the day before), %s.\n%s", lengthName, hm(length), Change(delta), s.where, cautionLegal)
+	fmt.Fprintf(&b, "%s %s (%s from the day before), %s.", lengthName, hm(length), Change(delta), s.where)
 	return title, b.String()
 }

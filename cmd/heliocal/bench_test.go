@@ -5,6 +5,9 @@ import (
 	"context"
 	"io"
 	"testing"
+	"time"
+
+	"heliocal/feed/serve"
 )
 
 // eventsArgs is the events command measured against PyEphem by
@@ -52,4 +55,33 @@ func BenchmarkEventsCommand20YearsCSV(b *testing.B) {
 
 func BenchmarkEventsCommand20YearsTable(b *testing.B) {
 	benchCommand(b, append(eventsArgs[:len(eventsArgs)-1:len(eventsArgs)-1], "table"))
+}
+
+// BenchmarkAdhocFeed: the server's work for an ad-hoc one-year feed for a
+// new place (sunrise, sunset, civil dawn and dusk: the default kinds),
+// catalogue and iCalendar encoding; the dates' shared ephemeris is built
+// once, as the server keeps it for every place.
+func BenchmarkAdhocFeed(b *testing.B) {
+	vienna, err := time.LoadLocation("Europe/Vienna")
+	if err != nil {
+		b.Fatal(err)
+	}
+	build := adhocFeed(newLayout(""), 24*time.Hour)
+	q := serve.AdhocQuery{Latitude: 47.8, Longitude: 13.05, Location: vienna,
+		Kinds: []string{"civil-dawn", "civil-dusk", "sunrise", "sunset"},
+		Start: time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC), Days: 365}
+	if _, err := build(context.Background(), q); err != nil { // the shared ephemeris
+		b.Fatal(err)
+	}
+	b.ReportAllocs()
+	var size int
+	for i := 0; b.Loop(); i++ {
+		q.Latitude = 40 + float64(i%1000)*0.01 // a new place each time
+		data, err := build(context.Background(), q)
+		if err != nil {
+			b.Fatal(err)
+		}
+		size = len(data)
+	}
+	b.ReportMetric(float64(size), "bytes/feed")
 }

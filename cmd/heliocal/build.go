@@ -76,6 +76,7 @@ func build(cfg *config.Config, now time.Time, l layout) ([]publish.Source, publi
 		MaxFeedBytes: cfg.Service.MaxFeedBytes,
 		Title:        cfg.Page.Title,
 		Page:         pageText(cfg),
+		Oversize:     cfg.Service.Oversize,
 	}
 	opts.BaseURL = l.base
 	return srcs, opts, nil

@@ -133,6 +133,10 @@ func Summary(st Stats, dir string) string {
 		fmt.Fprintf(&b, "removed %d leftover temporary %s of an interrupted run\n",
 			st.TempRemoved, plural(st.TempRemoved, "file", "files"))
 	}
+	for _, t := range st.Trimmed {
+		fmt.Fprintf(&b, "note: %s shortened to %s to stay under %s (now %s, %d events)\n",
+			t.Feed.File, t.To.Format("2006-01-02"), formatBytes(int64(st.MaxFeedBytes)), formatBytes(int64(t.Feed.Bytes)), t.Feed.Events)
+	}
 	for _, f := range st.Oversize {
 		fmt.Fprintf(&b, "warning: %s is %s, over the %s limit: some web calendars drop events from larger subscriptions; shorten its window or split it by kind\n",
 			f.File, formatBytes(int64(f.Bytes)), formatBytes(int64(st.MaxFeedBytes)))

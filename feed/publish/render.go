@@ -100,6 +100,9 @@ type RenderOptions struct {
 	// MaxFeedBytes is the size above which a feed is listed in
 	// Stats.Oversize; zero means DefaultMaxFeedBytes, negative disables it.
 	MaxFeedBytes int
+	// Oversize is what happens to a feed over MaxFeedBytes: OversizeWarn
+	// (or ""), OversizeTrim or OversizeFail.
+	Oversize string
 	// Progress, when set, is told about every feed (a bar on a terminal).
 	Progress *Progress
 }
@@ -141,10 +144,11 @@ func (o *RenderOptions) base() (*url.URL, error) {
 
 // rendered is one encoded feed with what the index needs of it.
 type rendered struct {
-	info  FeedInfo
-	site  feed.Site
-	file  File
-	stamp time.Time
+	info      FeedInfo
+	trimmedTo time.Time // the window was shortened to this last date
+	site      feed.Site
+	file      File
+	stamp     time.Time
 }
 
 // select returns the sources of the run's shard, checking ids.
@@ -213,9 +217,10 @@ func renderOne(ctx context.Context, s Source, enc func(*feed.Calendar) ([]byte, 
 			ID: s.ID, Title: cal.Title, Site: cal.Site.ID, File: name, URL: u,
 			Events: len(cal.Entries), Bytes: len(data), Checksum: sum,
 		},
-		site:  cal.Site,
-		file:  File{Name: name, ContentType: ContentTypeICS, Data: data, Checksum: sum, ModTime: cal.Stamp.UTC()},
-		stamp: cal.Stamp,
+		trimmedTo: cal.TrimmedTo,
+		site:      cal.Site,
+		file:      File{Name: name, ContentType: ContentTypeICS, Data: data, Checksum: sum, ModTime: cal.Stamp.UTC()},
+		stamp:     cal.Stamp,
 	}, nil
 }
 

@@ -80,6 +80,9 @@ func (r *publishRun) stage(ctx context.Context) error {
 		if limit := r.st.MaxFeedBytes; limit > 0 && rd.info.Bytes > limit {
 			r.st.Oversize = append(r.st.Oversize, rd.info)
 		}
+		if !rd.trimmedTo.IsZero() {
+			r.st.Trimmed = append(r.st.Trimmed, Trimmed{Feed: rd.info, To: rd.trimmedTo})
+		}
 		r.list.add(rd)
 		r.stamps = append(r.stamps, rd.stamp)
 		if p := r.opts.Progress; p != nil {

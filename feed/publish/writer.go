@@ -91,7 +91,10 @@ type Stats struct {
 	TempRemoved    int   // leftover temporary files of an earlier crash removed
 	// Oversize lists the feeds larger than RenderOptions.MaxFeedBytes,
 	// which is recorded in MaxFeedBytes.
-	Oversize     []FeedInfo
+	Oversize []FeedInfo
+	// Trimmed lists the feeds whose window was shortened to fit
+	// MaxFeedBytes (RenderOptions.Oversize = OversizeTrim).
+	Trimmed      []Trimmed
 	MaxFeedBytes int
 	// Index is what happened to feeds.json and index.html: IndexWritten,
 	// IndexUnchanged, or IndexPending (sharded, other shards not done yet).
@@ -560,4 +563,10 @@ func removeStaged(staged []stagedFeed) {
 			os.Remove(sf.tmp)
 		}
 	}
+}
+
+// Trimmed is a feed shortened to fit its size limit: its last date now.
+type Trimmed struct {
+	Feed FeedInfo
+	To   time.Time // last local date, 00:00 UTC
 }

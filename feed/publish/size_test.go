@@ -1,0 +1,117 @@
+package publish
+
+import (
+	"context"
+	"errors"
+	"strings"
+	"testing"
+	"time"
+
+	"heliocal/config"
+	"heliocal/feed"
+)
+
+// typicalFeed is a single site's everyday feed: sunrise, sunset, a reminder
+// before sunrise, a daily summary and the seasons, 400 days.
+func typicalFeed(t *testing.T, lat, lon float64, zone string) (*config.Config, *config.Feed) {
+	t.Helper()
+	var z config.Zone
+	if err := z.UnmarshalText([]byte(zone)); err != nil {
+		t.Fatal(err)
+	}
+	kind := func(name string) config.KindSpec {
+		k, err := config.ParseKind(name)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return config.KindSpec{Kind: k}
+	}
+	reminder := kind("sunrise")
+	reminder.Offset, reminder.Label = config.Duration(-30*time.Minute), "Open the polytunnel vents"
+	cfg := &config.Config{
+		Sites: []config.Site{{ID: "plot", Name: "Brookfield Allotments", Latitude: lat, Longitude: lon, Elevation: 70, TimeZone: z}},
+		Feeds: []config.Feed{{ID: "plot-sun", Title: "Brookfield — sun", Site: "plot", DaysBack: 35, DaysAhead: 365,
+			Kinds: []config.KindSpec{kind("sunrise"), kind("sunset"), reminder, kind("daily-summary"), kind("seasons")}}},
+	}
+	return cfg, &cfg.Feeds[0]
+}
+
+// encodeFeed builds and encodes one feed with opts' encoder.
+func encodeFeed(t *testing.T, cfg *config.Config, f *config.Feed, opts *RenderOptions) (*feed.Calendar, []byte, error) {
+	t.Helper()
+	cat, err := feed.NewCatalogue(cfg, feed.Options{Now: time.Date(2027, 3, 1, 0, 0, 0, 0, time.UTC), Refresh: 24 * time.Hour})
+	if err != nil {
+		t.Fatal(err)
+	}
+	cal, err := cat.Calendar(context.Background(), f)
+	if err != nil {
+		t.Fatal(err)
+	}
+	data, err := opts.encoder()(cal)
+	return cal, data, err
+}
+
+// Feeds that fit: a typical single site's feed (1,600 entries over 400
+// days) stays under the 1,000,000 bytes some web calendars accept (common
+// practice: Google Calendar is reported to drop larger subscriptions), with
+// the caution once in the calendar's description and not on each sunrise;
+// and so does every feed of the demo with its configured window.
+func TestTypicalFeedsFit(t *testing.T) {
+	for _, s := range []struct {
+		lat, lon float64
+		zone     string
+	}{{51.75, -1.26, "Europe/London"}, {-33.45, -70.67, "America/Santiago"}, {23.13, -82.38, "America/Havana"}} {
+		cfg, f := typicalFeed(t, s.lat, s.lon, s.zone)
+		cal, data, err := encodeFeed(t, cfg, f, &RenderOptions{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		t.Logf("%s: %d entries, %d bytes", s.zone, len(cal.Entries), len(data))
+		if len(data) >= 1000000 || len(cal.Entries) < 1500 {
+			t.Errorf("%s: %d entries in %d bytes, want ≥ 1500 entries under 1,000,000 bytes", s.zone, len(cal.Entries), len(data))
+		}
+		if n := strings.Count(string(data), "local rules"); n != 2 { // DESCRIPTION and X-WR-CALDESC
+			t.Errorf("%s: the caution appears %d times, want once in each calendar description property", s.zone, n)
+		}
+	}
+	cfg := config.Demo()
+	for i := range cfg.Feeds {
+		_, data, err := encodeFeed(t, cfg, &cfg.Feeds[i], &RenderOptions{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(data) >= 1000000 {
+			t.Errorf("demo feed %s: %d bytes", cfg.Feeds[i].ID, len(data))
+		}
+	}
+}
+
+// service.oversize: fail stops with the feed and its size; trim shortens
+// the window from the far end, whole dates, until the feed fits, and says
+// how far it reaches; warn (the default) leaves the feed whole.
+func TestOversize(t *testing.T) {
+	cfg, f := typicalFeed(t, 51.75, -1.26, "Europe/London")
+	_, whole, err := encodeFeed(t, cfg, f, &RenderOptions{MaxFeedBytes: 400000})
+	if err != nil || len(whole) <= 400000 {
+		t.Fatalf("warn: %d bytes, %v", len(whole), err)
+	}
+	_, _, err = encodeFeed(t, cfg, f, &RenderOptions{MaxFeedBytes: 400000, Oversize: OversizeFail})
+	var oe *OversizeError
+	if !errors.As(err, &oe) || oe.Feed != "plot-sun" || oe.Bytes != len(whole) || !strings.Contains(err.Error(), "400000") {
+		t.Fatalf("fail: %v", err)
+	}
+	cal, data, err := encodeFeed(t, cfg, f, &RenderOptions{MaxFeedBytes: 400000, Oversize: OversizeTrim})
+	if err != nil {
+		t.Fatal(err)
+	}
+	last := cal.Entries[len(cal.Entries)-1].Date
+	if len(data) > 400000 || len(data) < 360000 || !last.Equal(cal.TrimmedTo) || !last.Before(time.Date(2028, 1, 1, 0, 0, 0, 0, time.UTC)) {
+		t.Errorf("trim: %d bytes, last date %s, trimmed to %s", len(data), last.Format(time.DateOnly), cal.TrimmedTo.Format(time.DateOnly))
+	}
+	if want := "reaches to " + last.Format(time.DateOnly); !strings.Contains(cal.Description, want) {
+		t.Errorf("trim: description %q lacks %q", cal.Description, want)
+	}
+	if cal.Entries[0].Date.After(time.Date(2027, 1, 25, 0, 0, 0, 0, time.UTC)) {
+		t.Errorf("trim: the near end moved to %s", cal.Entries[0].Date.Format(time.DateOnly))
+	}
+}

@@ -150,3 +150,14 @@ func TestEventsMemoryFlat(t *testing.T) {
 		t.Errorf("50 years take %.1f MB of heap, 5 years %.1f MB: memory grows with the span", float64(long)/1e6, float64(short)/1e6)
 	}
 }
+
+// Each CSV column appears once.
+func TestEventsCSVColumnsOnce(t *testing.T) {
+	seen := map[string]bool{}
+	for _, c := range eventsCSVHeader {
+		if seen[c] {
+			t.Errorf("column %q twice", c)
+		}
+		seen[c] = true
+	}
+}

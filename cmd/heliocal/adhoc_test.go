@@ -3,6 +3,7 @@ package main
 import (
 	"context"
 	"errors"
+	"strings"
 	"sync/atomic"
 	"testing"
 	"time"
@@ -62,4 +63,29 @@ func mustZone(t *testing.T, name string) *time.Location {
 		t.Fatal(err)
 	}
 	return loc
+}
+
+// An ad-hoc feed reaches both ends of the supported range (1800-01-01 to
+// 2200-12-31), as `events` does: the server's default window limits are that
+// range, and a feed at either end builds with events on its first and last
+// dates.
+func TestAdhocFeedAtTheEndsOfTheRange(t *testing.T) {
+	build := adhocFeed(newLayout(""), 24*time.Hour)
+	for _, start := range []time.Time{
+		time.Date(serve.DefaultAdhocMinYear, 1, 1, 0, 0, 0, 0, time.UTC),
+		time.Date(serve.DefaultAdhocMaxYear, 12, 1, 0, 0, 0, 0, time.UTC),
+	} {
+		q := serve.AdhocQuery{Latitude: -33.45, Longitude: -70.67, Location: mustZone(t, "America/Santiago"),
+			Kinds: []string{"sunrise", "moonrise", "full-moon", "december-solstice"}, Start: start, Days: 31}
+		b, err := build(context.Background(), q)
+		if err != nil {
+			t.Fatalf("%s: %v", start.Format(time.DateOnly), err)
+		}
+		first, last := start.Format("20060102"), start.AddDate(0, 0, 30).Format("20060102")
+		for _, day := range []string{first, last} {
+			if !strings.Contains(string(b), "DTSTART;TZID=America/Santiago:"+day+"T") {
+				t.Errorf("%s: no sunrise on %s", start.Format(time.DateOnly), day)
+			}
+		}
+	}
 }

@@ -64,8 +64,8 @@ const (
 	// DefaultAdhocMaxBytes: some web calendars are reported to drop
 	// subscriptions over about 1 MB (about 1,300 to 2,000 events).
 	DefaultAdhocMaxBytes     = 1_000_000
-	DefaultAdhocMinYear      = 1900
-	DefaultAdhocMaxYear      = 2100
+	DefaultAdhocMinYear      = 1800
+	DefaultAdhocMaxYear      = 2200
 	DefaultReadHeaderTimeout = 5 * time.Second
 	DefaultReadTimeout       = 10 * time.Second
 	DefaultWriteTimeout      = 60 * time.Second
@@ -128,8 +128,8 @@ type Options struct {
 	AdhocDefaultKinds []string
 	AdhocMaxDays      int           // longest window, default 400
 	AdhocDefaultDays  int           // window without "days", default 365
-	AdhocMinYear      int           // earliest year of a window, default 1900
-	AdhocMaxYear      int           // latest year of a window, default 2100
+	AdhocMinYear      int           // earliest year of a window, default 1800 (the supported range)
+	AdhocMaxYear      int           // latest year of a window, default 2200 (the supported range)
 	AdhocCacheEntries int           // cached ad-hoc feeds, default 256
 	AdhocCacheBytes   int           // and their total size, default 64 MiB
 	AdhocConcurrency  int           // ad-hoc builds at once, default GOMAXPROCS

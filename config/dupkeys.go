@@ -221,3 +221,43 @@ func (d *dupFinder) toml(data []byte) {
 		}
 	}
 }
+
+// withoutDuplicates rewrites a YAML or JSON document keeping only the first
+// of each set of keys that differ at most in case, so that the rest of the
+// document can still be decoded and checked once its duplicates are
+// reported. It returns the document to decode and its format; TOML, or a
+// document it cannot rewrite, is returned unchanged.
+func withoutDuplicates(data []byte, format string) ([]byte, string) {
+	if format != "yaml" && format != "json" {
+		return data, format
+	}
+	var doc yaml.Node
+	if yaml.Unmarshal(data, &doc) != nil {
+		return data, format
+	}
+	var strip func(n *yaml.Node)
+	strip = func(n *yaml.Node) {
+		if n.Kind == yaml.MappingNode {
+			seen := map[string]bool{}
+			kept := n.Content[:0]
+			for i := 0; i+1 < len(n.Content); i += 2 {
+				k := strings.ToLower(n.Content[i].Value)
+				if seen[k] {
+					continue
+				}
+				seen[k] = true
+				kept = append(kept, n.Content[i], n.Content[i+1])
+			}
+			n.Content = kept
+		}
+		for _, c := range n.Content {
+			strip(c)
+		}
+	}
+	strip(&doc)
+	out, err := yaml.Marshal(&doc)
+	if err != nil {
+		return data, format
+	}
+	return out, "yaml"
+}

@@ -67,3 +67,31 @@ func demoIn(t *testing.T, format string) []byte {
 	return []byte("[service]\nlisten = \":8080\"\n[[sites]]\nid = \"a\"\nlatitude = 1\nlongitude = 2\n[[sites]]\nid = \"b\"\nlatitude = 1\nlongitude = 2\n" +
 		"[[feeds]]\nid = \"f\"\nsite = \"a\"\n[[feeds.kinds]]\nkind = \"sunrise\"\n[[feeds.kinds]]\nkind = \"sunset\"\n[[feeds]]\nid = \"g\"\nsite = \"b\"\n[[feeds.kinds]]\nkind = \"sunrise\"\n")
 }
+
+// A duplicate key does not hide the other problems of the document: all are
+// listed at once, the duplicate among them.
+func TestDuplicateKeysListedWithOtherProblems(t *testing.T) {
+	for _, tc := range []struct{ format, doc string }{
+		{"yaml", "sites:\n  - id: a\n    latitude: 47.5\n    Latitude: 10\n    longitude: 500\n    timezone: Mars/Base\nfeeds:\n  - id: f\n    site: nowhere\n    kinds: [sunrise]\n"},
+		{"yaml", "sites:\n  - id: a\n    latitude: 47.5\n    latitude: 10\n    longitude: 500\n    timezone: Mars/Base\nfeeds:\n  - id: f\n    site: nowhere\n    kinds: [sunrise]\n"},
+		{"json", `{"sites":[{"id":"a","latitude":47.5,"latitude":10,"longitude":500,"timezone":"Mars/Base"}],"feeds":[{"id":"f","site":"nowhere","kinds":["sunrise"]}]}`},
+		{"toml", "[[sites]]\nid = \"a\"\nlatitude = 47.5\nLatitude = 10\nlongitude = 500\ntimezone = \"Mars/Base\"\n[[feeds]]\nid = \"f\"\nsite = \"nowhere\"\nkinds = [\"sunrise\"]\n"},
+	} {
+		_, err := Parse(strings.NewReader(tc.doc), tc.format)
+		ps := problemsOf(t, err)
+		want := map[string]bool{"sites[0].latitude": false, "sites[0].longitude": false, "sites[0].timezone": false, "feeds[0].site": false}
+		for _, p := range ps {
+			if _, ok := want[p.Path]; ok {
+				want[p.Path] = true
+			}
+			if p.Path == "sites[0].latitude" && !strings.Contains(p.Msg, "duplicate key") {
+				t.Errorf("%s: latitude problem is not the duplicate: %v", tc.format, p)
+			}
+		}
+		for path, seen := range want {
+			if !seen {
+				t.Errorf("%s: no problem at %s in %v", tc.format, path, err)
+			}
+		}
+	}
+}

@@ -95,12 +95,19 @@ func ParseEnv(r io.Reader, format string, env LookupEnv) (*Config, error) {
 }
 
 func parse(data []byte, format string, env LookupEnv) (c *Config, err error) {
-	if dups := duplicateKeys(data, format); len(dups) > 0 {
-		return nil, newValidationError(dups)
+	// Duplicate keys are problems of their own; the first of each is kept
+	// so that every other problem of the document is listed with them.
+	dups := duplicateKeys(data, format)
+	decoded, decodedAs := data, format
+	if len(dups) > 0 {
+		decoded, decodedAs = withoutDuplicates(data, format)
 	}
 	v := viper.New()
-	v.SetConfigType(format)
-	if err := readConfig(v, data); err != nil {
+	v.SetConfigType(decodedAs)
+	if err := readConfig(v, decoded); err != nil {
+		if len(dups) > 0 {
+			return nil, newValidationError(dups)
+		}
 		return nil, fmt.Errorf("%w as %s: %s", ErrUnreadable, format, syntaxMessage(err, data))
 	}
 	explicit := explicitWindows(v.Get("feeds"))
@@ -139,6 +146,15 @@ func parse(data []byte, format string, env LookupEnv) (c *Config, err error) {
 				problems = append(problems, p)
 			}
 		}
+	}
+	if len(dups) > 0 {
+		var rest []FieldError
+		for _, p := range problems {
+			if !covered(p.Path, dups) {
+				rest = append(rest, p)
+			}
+		}
+		problems = append(dups, rest...)
 	}
 	for i := range problems {
 		if name, ok := fromEnv[problems[i].Path]; ok {

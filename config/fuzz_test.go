@@ -55,7 +55,7 @@ func FuzzParseConfig(f *testing.F) {
 			t.Fatal("empty error")
 		}
 		if errors.Is(err, ErrUnreadable) {
-			if !strings.HasPrefix(msg, "config: cannot read the file") {
+			if !strings.HasPrefix(msg, "cannot read the file") {
 				t.Fatalf("unreadable error without its prefix: %q", msg)
 			}
 			return

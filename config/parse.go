@@ -36,7 +36,16 @@ const (
 
 // ErrUnreadable is wrapped by errors for input that is not a YAML, TOML or
 // JSON document at all (syntax errors, wrong top-level shape, too large).
-var ErrUnreadable = errors.New("config: cannot read the file")
+var ErrUnreadable = errors.New("cannot read the file")
+
+// errNoSuchFile words a missing configuration file once; it is
+// fs.ErrNotExist.
+var errNoSuchFile = noSuchFile{}
+
+type noSuchFile struct{}
+
+func (noSuchFile) Error() string        { return "no such file" }
+func (noSuchFile) Is(target error) bool { return target == fs.ErrNotExist }
 
 // LookupEnv looks up one environment variable; os.LookupEnv fits. A nil
 // LookupEnv means no environment.
@@ -730,18 +739,22 @@ func LoadEnv(path string, env LookupEnv) (*Config, error) {
 	switch ext {
 	case ".yaml", ".yml", ".toml", ".json":
 	default:
-		return nil, fmt.Errorf("config: %s: unknown file extension %q (use .yaml, .yml, .toml or .json)", path, ext)
+		return nil, fmt.Errorf("%s: unknown file extension %q (use .yaml, .yml, .toml or .json)", path, ext)
 	}
 	f, err := os.Open(path)
 	if err != nil {
 		if errors.Is(err, fs.ErrNotExist) {
-			return nil, fmt.Errorf("config: configuration file %q not found: %w", path, fs.ErrNotExist)
+			return nil, fmt.Errorf("%s: %w", path, errNoSuchFile)
 		}
-		return nil, fmt.Errorf("config: %w", err)
+		var pe *fs.PathError
+		if errors.As(err, &pe) {
+			return nil, fmt.Errorf("%s: %w", path, pe.Err)
+		}
+		return nil, fmt.Errorf("%s: %w", path, err)
 	}
 	defer f.Close()
 	if st, err := f.Stat(); err == nil && st.IsDir() {
-		return nil, fmt.Errorf("config: %s is a directory, not a configuration file", path)
+		return nil, fmt.Errorf("%s: is a directory, not a configuration file", path)
 	}
 	c, err := ParseEnv(f, ext, env)
 	if err != nil {

@@ -73,7 +73,7 @@ func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Tim
 	shard := publish.Shard{}
 	if o.shard != "" {
 		if shard, err = publish.ParseShard(o.shard); err != nil {
-			return badInput("--shard: %w", err)
+			return badInput("--%w", err) // --shard "5/4": …
 		}
 	}
 	if o.lockWait <= 0 {

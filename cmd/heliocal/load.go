@@ -40,7 +40,15 @@ func loadConfig(g *globals) (*config.Config, config.Source, error) {
 		if errors.As(err, &ve) {
 			return nil, src, ve // each line already names the file, field and value
 		}
-		return nil, src, inputError{fmt.Errorf("configuration (%s): %w", src, err)}
+		switch {
+		case g.configPath == stdinPath:
+			err = fmt.Errorf("--config -: %w", err)
+		case g.configPath != "":
+			err = fmt.Errorf("--config %w", err) // the error begins with the path
+		case src.Demo:
+			err = fmt.Errorf("%s configuration: %w", src, err)
+		} // else the error begins with the default file's path
+		return nil, src, inputError{err}
 	}
 	return cfg, src, nil
 }

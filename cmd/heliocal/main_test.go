@@ -180,8 +180,10 @@ func TestEventsBadInput(t *testing.T) {
 		{"format", []string{"events", "--lat", "0", "--lon", "0", "--format", "xml"}, "--format: \"xml\""},
 		{"site", []string{"events", "--site", "nowhere"}, "nowhere"},
 		{"flag", []string{"events", "--latitude", "1"}, "latitude"},
-		{"shard count", []string{"publish", "--shard", "0/10001", "--out", "unused"}, `--shard: publish: shard "0/10001": count must be at most 10000`},
+		{"shard count", []string{"publish", "--shard", "0/10001", "--out", "unused"}, `--shard "0/10001": count must be at most 10000`},
 		{"config", []string{"check", "--config", filepath.Join("..", "..", "testdata", "config", "bad-latitude.yaml")}, "latitude"},
+		{"missing config", []string{"check", "--config", "nope.yaml"}, "heliocal: --config nope.yaml: no such file\n"},
+		{"config extension", []string{"check", "--config", "farm.ini"}, `heliocal: --config farm.ini: unknown file extension ".ini"`},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			code, _, errOut := runCLI(t, tc.args...)

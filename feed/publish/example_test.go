@@ -22,7 +22,7 @@ func ExampleParseShard() {
 	fmt.Println("shards holding fernhollow-sun:", n)
 	// Output:
 	// 2/4 <nil>
-	// publish: shard "4/4": index must be within 0..3 (0-based, like JOB_COMPLETION_INDEX)
+	// shard "4/4": index must be within 0..3 (0-based, like JOB_COMPLETION_INDEX)
 	// shards holding fernhollow-sun: 1
 }
 

@@ -62,24 +62,24 @@ const MaxShards = 10_000
 func ParseShard(s string) (Shard, error) {
 	a, b, ok := strings.Cut(strings.TrimSpace(s), "/")
 	if !ok {
-		return Shard{}, fmt.Errorf("publish: shard %q: want i/n, e.g. \"0/4\" (i is 0-based)", s)
+		return Shard{}, fmt.Errorf("shard %q: want i/n, e.g. \"0/4\" (i is 0-based)", s)
 	}
 	n, err := strconv.Atoi(strings.TrimSpace(b))
 	if err != nil {
-		return Shard{}, fmt.Errorf("publish: shard %q: count %q is not a whole number", s, b)
+		return Shard{}, fmt.Errorf("shard %q: count %q is not a whole number", s, b)
 	}
 	if n < 1 {
-		return Shard{}, fmt.Errorf("publish: shard %q: count must be at least 1", s)
+		return Shard{}, fmt.Errorf("shard %q: count must be at least 1", s)
 	}
 	if n > MaxShards {
-		return Shard{}, fmt.Errorf("publish: shard %q: count must be at most %d", s, MaxShards)
+		return Shard{}, fmt.Errorf("shard %q: count must be at most %d", s, MaxShards)
 	}
 	i, err := strconv.Atoi(strings.TrimSpace(a))
 	if err != nil {
-		return Shard{}, fmt.Errorf("publish: shard %q: index %q is not a whole number", s, a)
+		return Shard{}, fmt.Errorf("shard %q: index %q is not a whole number", s, a)
 	}
 	if i < 0 || i >= n {
-		return Shard{}, fmt.Errorf("publish: shard %q: index must be within 0..%d (0-based, like JOB_COMPLETION_INDEX)", s, n-1)
+		return Shard{}, fmt.Errorf("shard %q: index must be within 0..%d (0-based, like JOB_COMPLETION_INDEX)", s, n-1)
 	}
 	return Shard{Index: i, Count: n}, nil
 }

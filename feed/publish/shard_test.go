@@ -59,15 +59,15 @@ func TestParseShard(t *testing.T) {
 		}
 	}
 	bad := []struct{ in, want string }{
-		{"4/4", `publish: shard "4/4": index must be within 0..3 (0-based, like JOB_COMPLETION_INDEX)`},
-		{"-1/4", `publish: shard "-1/4": index must be within 0..3 (0-based, like JOB_COMPLETION_INDEX)`},
-		{"1/0", `publish: shard "1/0": count must be at least 1`},
-		{"0/10001", `publish: shard "0/10001": count must be at most 10000`},
-		{"0/99999999999999999", `publish: shard "0/99999999999999999": count must be at most 10000`},
-		{"3", `publish: shard "3": want i/n, e.g. "0/4" (i is 0-based)`},
-		{"a/4", `publish: shard "a/4": index "a" is not a whole number`},
-		{"1/four", `publish: shard "1/four": count "four" is not a whole number`},
-		{"", `publish: shard "": want i/n, e.g. "0/4" (i is 0-based)`},
+		{"4/4", `shard "4/4": index must be within 0..3 (0-based, like JOB_COMPLETION_INDEX)`},
+		{"-1/4", `shard "-1/4": index must be within 0..3 (0-based, like JOB_COMPLETION_INDEX)`},
+		{"1/0", `shard "1/0": count must be at least 1`},
+		{"0/10001", `shard "0/10001": count must be at most 10000`},
+		{"0/99999999999999999", `shard "0/99999999999999999": count must be at most 10000`},
+		{"3", `shard "3": want i/n, e.g. "0/4" (i is 0-based)`},
+		{"a/4", `shard "a/4": index "a" is not a whole number`},
+		{"1/four", `shard "1/four": count "four" is not a whole number`},
+		{"", `shard "": want i/n, e.g. "0/4" (i is 0-based)`},
 	}
 	for _, tc := range bad {
 		if _, err := ParseShard(tc.in); err == nil || err.Error() != tc.want {

@@ -185,7 +185,9 @@ func (c *Config) Validate() error {
 			continue
 		}
 		siteIDs[s.ID] = i
-		ids = append(ids, s.ID)
+		if validID(s.ID) {
+			ids = append(ids, s.ID) // only valid ids are ever suggested
+		}
 	}
 
 	feedIDs := make(map[string]int, len(c.Feeds))
@@ -396,6 +398,11 @@ func checkCronFires(expr string, now time.Time) string {
 		prev = next
 	}
 	return ""
+}
+
+// validID reports whether checkID accepts id.
+func validID(id string) bool {
+	return id != "" && len(id) <= MaxIDLength && idPattern.MatchString(id)
 }
 
 func checkID(ps *problems, path, id, what string) {

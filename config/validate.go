@@ -549,6 +549,20 @@ func (f *Feed) validate(ps *problems, p string) {
 	}
 }
 
+// OffsetProblem says why offset o cannot shift the events of kind k (a
+// kinds entry's offset), with a hint; it returns "" when o is fine.
+func OffsetProblem(k Kind, o time.Duration) (msg, hint string) {
+	switch {
+	case o < -MaxOffset || o > MaxOffset:
+		return "must be within -12h..12h", `e.g. "-30m" for 30 minutes before`
+	case o != 0 && k.Name == KindLighting:
+		return "has no meaning for lighting: the lamp times follow from the target", "remove the offset; use latest_off or earliest_on to bound the lamps"
+	case o != 0 && k.IsAllDay():
+		return fmt.Sprintf("has no meaning for %s: its entries name a date, not a time", k.Name), "remove the offset"
+	}
+	return "", ""
+}
+
 func (ks *KindSpec) validate(ps *problems, p string) {
 	if ks.Kind.IsZero() {
 		ps.add(p+".kind", "", "is required", "one of: "+strings.Join(KindNames, ", "))
@@ -566,12 +580,8 @@ func (ks *KindSpec) validate(ps *problems, p string) {
 	if _, err := ParseKind(ks.Kind.String()); err != nil {
 		ps.add(p+".kind", ks.Kind.String(), "malformed threshold", err.Error())
 	}
-	if o := ks.Offset.D(); o < -MaxOffset || o > MaxOffset {
-		ps.add(p+".offset", ks.Offset.String(), "must be within -12h..12h", `e.g. "-30m" for 30 minutes before`)
-	} else if o != 0 && ks.Kind.Name == KindLighting {
-		ps.add(p+".offset", ks.Offset.String(), "has no meaning for lighting: the lamp times follow from the target", "remove the offset; use latest_off or earliest_on to bound the lamps")
-	} else if o != 0 && ks.Kind.IsAllDay() {
-		ps.add(p+".offset", ks.Offset.String(), fmt.Sprintf("has no meaning for %s: its entries name a date, not a time", ks.Kind.Name), "remove the offset")
+	if msg, hint := OffsetProblem(ks.Kind, ks.Offset.D()); msg != "" {
+		ps.add(p+".offset", ks.Offset.String(), msg, hint)
 	}
 	checkText(ps, p+".label", ks.Label, false, MaxTextLength)
 	mi := ks.MaxIllumination

@@ -281,7 +281,7 @@ func adhocCalendarFrom(current func() adhocSettings) serve.PreviewFunc {
 			if err != nil {
 				return nil, &serve.QueryError{Param: serve.ParamKinds, Value: name, Msg: err.Error()}
 			}
-			f.Kinds = append(f.Kinds, config.KindSpec{Kind: k})
+			f.Kinds = append(f.Kinds, config.KindSpec{Kind: k, Offset: config.Duration(q.Offsets[name])})
 		}
 		sky, err := skies.get(first, last)
 		if err != nil {

@@ -34,10 +34,11 @@ const (
 	ParamHorizon   = "horizon"  // altitude of the skyline in degrees, -5..45 (default 0)
 	ParamAlarm     = "alarm"    // reminder before each timed event, e.g. 15m, 0..168h (default none)
 	ParamLighting  = "lighting" // lamp target day length, e.g. 16h: adds the kind lighting:16h
+	ParamOffsets   = "offsets"  // per-kind shifts, kind:duration comma-separated, e.g. sunset:-30m (default none)
 )
 
 var adhocParams = []string{ParamLatitude, ParamLongitude, ParamZone, ParamKinds, ParamDays, ParamStart, ParamElevation, ParamUTC,
-	ParamName, ParamHorizon, ParamAlarm, ParamLighting}
+	ParamName, ParamHorizon, ParamAlarm, ParamLighting, ParamOffsets}
 
 // Bounds of the ad-hoc parameters.
 const (
@@ -69,6 +70,9 @@ type AdhocQuery struct {
 	Name    string        // the place's name; empty: the coordinates
 	Horizon float64       // skyline altitude in degrees, rounded to 0.1°
 	Alarm   time.Duration // reminder before each timed event; 0 = none
+	// Offsets shift the events of some of Kinds (keys in Kinds' canonical
+	// form), as the offset of a configuration's kinds entry does.
+	Offsets map[string]time.Duration
 	// ZoneFound is true when tz was not given and Location is the zone at
 	// the coordinates (config.ZoneAt).
 	ZoneFound bool
@@ -97,6 +101,9 @@ func (q AdhocQuery) place() string {
 	}
 	if q.Alarm != 0 {
 		b.WriteString("&" + ParamAlarm + "=" + formatDuration(q.Alarm))
+	}
+	if len(q.Offsets) > 0 {
+		b.WriteString("&" + ParamOffsets + "=" + url.QueryEscape(q.offsetList()))
 	}
 	return b.String()
 }

@@ -2,6 +2,7 @@ package serve
 
 import (
 	"fmt"
+	"maps"
 	"math"
 	"slices"
 	"strings"
@@ -66,7 +67,60 @@ func (q *AdhocQuery) parseExtras(get getter, lim *adhocLimits) error {
 		slices.Sort(kinds)
 		q.Kinds = slices.Compact(kinds)
 	}
+	if v, ok := get(ParamOffsets); ok {
+		return q.parseOffsets(v, lim)
+	}
 	return nil
+}
+
+// parseOffsets reads offsets: "kind:duration" items, comma-separated. The
+// duration follows the last colon (a kind may hold colons itself, as in
+// sun-altitude:-6); it is read and checked as a configuration's kinds entry
+// offset is.
+func (q *AdhocQuery) parseOffsets(v string, lim *adhocLimits) error {
+	const hint = `must be kind:duration items, e.g. "sunset:-30m,sunrise:15m"`
+	q.Offsets = map[string]time.Duration{}
+	for _, item := range strings.Split(v, ",") {
+		item = strings.TrimSpace(item)
+		i := strings.LastIndexByte(item, ':')
+		if i <= 0 {
+			return &QueryError{Param: ParamOffsets, Value: item, Msg: hint}
+		}
+		k, err := lim.parseKind(strings.TrimSpace(item[:i]))
+		if err != nil {
+			return &QueryError{Param: ParamOffsets, Value: item, Msg: oneLine(err.Error())}
+		}
+		if !slices.Contains(q.Kinds, k) {
+			return &QueryError{Param: ParamOffsets, Value: item, Msg: "the kind " + k + " is not among the kinds asked for"}
+		}
+		if _, dup := q.Offsets[k]; dup {
+			return &QueryError{Param: ParamOffsets, Value: item, Msg: "the kind " + k + " is given more than once"}
+		}
+		var d config.Duration
+		if err := d.UnmarshalText([]byte(strings.TrimSpace(item[i+1:]))); err != nil {
+			return &QueryError{Param: ParamOffsets, Value: item, Msg: oneLine(err.Error())}
+		}
+		kind, _ := config.ParseKind(k) // the zero Kind under another vocabulary: only the range is checked
+		if msg, _ := config.OffsetProblem(kind, d.D()); msg != "" {
+			return &QueryError{Param: ParamOffsets, Value: item, Msg: "offset " + msg}
+		}
+		if d != 0 {
+			q.Offsets[k] = d.D().Round(time.Minute)
+		}
+	}
+	if len(q.Offsets) == 0 {
+		q.Offsets = nil
+	}
+	return nil
+}
+
+// offsetList writes Offsets in their canonical form, sorted by kind.
+func (q AdhocQuery) offsetList() string {
+	items := make([]string, 0, len(q.Offsets))
+	for _, k := range slices.Sorted(maps.Keys(q.Offsets)) {
+		items = append(items, k+":"+formatDuration(q.Offsets[k]))
+	}
+	return strings.Join(items, ",")
 }
 
 // formatDuration writes 16h0m0s as "16h", 14h30m0s as "14h30m", 15m0s as "15m".

@@ -55,6 +55,16 @@ func TestAdhocBadParameters(t *testing.T) {
 		{ok + "&lighting=24h", "lighting", `"24h"`},
 		{ok + "&lighting=0h", "lighting", `"0h"`},
 		{ok + "&lighting=long", "lighting", `"long"`},
+		{ok + "&offsets=sunrise", "offsets", `"sunrise"`},
+		{ok + "&offsets=sunrise:30", "offsets", `"sunrise:30"`},
+		{ok + "&offsets=sunrise:soon", "offsets", `"sunrise:soon"`},
+		{ok + "&offsets=sunrise:-13h", "offsets", `"sunrise:-13h"`},
+		{ok + "&offsets=sunset:-30m", "offsets", `"sunset:-30m"`},
+		{ok + "&offsets=sunrse:-30m", "offsets", `"sunrse:-30m"`},
+		{ok + "&offsets=sunrise:5m,sunrise:10m", "offsets", `"sunrise:10m"`},
+		{ok + "&offsets=:5m", "offsets", `":5m"`},
+		{"lat=47&lon=13&tz=UTC&kinds=daily-summary&offsets=daily-summary:1h", "offsets", `"daily-summary:1h"`},
+		{"lat=47&lon=13&tz=UTC&kinds=sunrise&lighting=16h&offsets=lighting:16h:1h", "offsets", `"lighting:16h:1h"`},
 		{"lat=47&lon=13&tz=Mars/Olympus_Mons&kinds=sunrise", "tz", `"Mars/Olympus_Mons"`},
 		{"lat=47&lon=13&tz=Local&kinds=sunrise", "tz", `"Local"`},
 		{"lat=47&lon=13&tz=../../etc/passwd&kinds=sunrise", "tz", `"../../etc/passwd"`},
@@ -143,6 +153,15 @@ func TestAdhocNormalisedAndCached(t *testing.T) {
 	if ct := first.Header.Get("Content-Type"); ct != "text/calendar; charset=utf-8" {
 		t.Errorf("Content-Type %q", ct)
 	}
+	// Offsets are normalised too: sorted, zero dropped, the duration rewritten.
+	get(t, h, "GET", "/at.ics?lat=47.5&lon=13.05&tz=Europe/Vienna&kinds=sunset,sunrise,sun-altitude:-6&offsets=sunset:-0.5h,sun-altitude:-6:%2B1h,sunrise:0s")
+	if want := "offsets=sun-altitude%3A-6%3A1h%2Csunset%3A-30m"; !strings.Contains(got.String(), want) {
+		t.Errorf("query = %s\nwant it to hold %s", got.String(), want)
+	}
+	if got.Offsets["sunset"] != -30*time.Minute || got.Offsets["sun-altitude:-6"] != time.Hour || len(got.Offsets) != 2 {
+		t.Errorf("offsets = %v", got.Offsets)
+	}
+	calls.Store(1) // that request is not the one the cache checks below count
 	// The same query spelled differently is a cache hit.
 	for _, q := range []string{
 		"kinds=sunrise,sunset&tz=Europe/Vienna&lon=13.0500&lat=47.5&elev=424",

@@ -4,6 +4,7 @@ package serve
 type kindChoice struct {
 	Kind, Label, Explain string
 	Checked              bool // chosen when the page opens
+	Shift                bool // the builder offers an offset (minutes before or after)
 }
 
 // kindGroup gathers the kinds by what people do with them.
@@ -17,24 +18,24 @@ type kindGroup struct {
 // configuration's vocabulary (checked by a test).
 var kindGroups = []kindGroup{
 	{ID: "growing", Name: "Growing", Explain: "Field work, greenhouses and animals: when the day starts, ends and how long it is.", Lighting: true, Kinds: []kindChoice{
-		{Kind: "civil-dawn", Label: "First light", Explain: "bright enough to work outside without lamps", Checked: true},
-		{Kind: "sunrise", Label: "Sunrise", Explain: "the top of the Sun appears over a flat horizon", Checked: true},
-		{Kind: "sunset", Label: "Sunset", Explain: "the top of the Sun disappears", Checked: true},
-		{Kind: "civil-dusk", Label: "Last light", Explain: "after this, outdoor work needs lamps", Checked: true},
+		{Kind: "civil-dawn", Label: "First light", Explain: "bright enough to work outside without lamps", Checked: true, Shift: true},
+		{Kind: "sunrise", Label: "Sunrise", Explain: "the top of the Sun appears over a flat horizon", Checked: true, Shift: true},
+		{Kind: "sunset", Label: "Sunset", Explain: "the top of the Sun disappears", Checked: true, Shift: true},
+		{Kind: "civil-dusk", Label: "Last light", Explain: "after this, outdoor work needs lamps", Checked: true, Shift: true},
 		{Kind: "daily-summary", Label: "Day summary", Explain: "one all-day note per day with day length and twilight"},
 	}},
 	{ID: "events", Name: "Events and photography", Explain: "Planning weddings, shoots and outdoor shows around the light.", Kinds: []kindChoice{
 		{Kind: "golden-hour", Label: "Golden hour", Explain: "low, warm sunlight shortly after sunrise and before sunset"},
 		{Kind: "blue-hour", Label: "Blue hour", Explain: "the deep blue sky just before sunrise and after sunset"},
-		{Kind: "solar-noon", Label: "Solar noon", Explain: "the Sun at its highest, the shortest shadows"},
+		{Kind: "solar-noon", Label: "Solar noon", Explain: "the Sun at its highest, the shortest shadows", Shift: true},
 	}},
 	{ID: "observing", Name: "Observing", Explain: "Telescopes, star parties and night photography.", Kinds: []kindChoice{
-		{Kind: "nautical-dusk", Label: "Nautical dusk", Explain: "the horizon fades; the brighter stars are out"},
-		{Kind: "astronomical-dusk", Label: "Night begins", Explain: "the sky is fully dark (Sun 18° down)"},
-		{Kind: "astronomical-dawn", Label: "Night ends", Explain: "the first trace of dawn in the east"},
+		{Kind: "nautical-dusk", Label: "Nautical dusk", Explain: "the horizon fades; the brighter stars are out", Shift: true},
+		{Kind: "astronomical-dusk", Label: "Night begins", Explain: "the sky is fully dark (Sun 18° down)", Shift: true},
+		{Kind: "astronomical-dawn", Label: "Night ends", Explain: "the first trace of dawn in the east", Shift: true},
 		{Kind: "dark-window", Label: "Dark, moonless hours", Explain: "full night with the Moon below the horizon"},
-		{Kind: "moonrise", Label: "Moonrise", Explain: "the Moon comes up"},
-		{Kind: "moonset", Label: "Moonset", Explain: "the Moon goes down"},
+		{Kind: "moonrise", Label: "Moonrise", Explain: "the Moon comes up", Shift: true},
+		{Kind: "moonset", Label: "Moonset", Explain: "the Moon goes down", Shift: true},
 		{Kind: "moon-phases", Label: "Moon phases", Explain: "new, first quarter, full and last quarter"},
 		{Kind: "solar-eclipse", Label: "Solar eclipses", Explain: "eclipses of the Sun seen from here (protect your eyes)"},
 		{Kind: "lunar-eclipse", Label: "Lunar eclipses", Explain: "eclipses of the Moon above your horizon"},

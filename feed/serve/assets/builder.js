@@ -49,6 +49,10 @@ function query(withStart) {
   if ($("tz").value.trim() !== "") p.set("tz", $("tz").value.trim());
   if (num("alarm") !== "" && num("alarm") !== "0") p.set("alarm", num("alarm") + "m");
   if (num("lighting") !== "") p.set("lighting", Math.round(parseFloat(num("lighting")) * 60) + "m");
+  const offsets = [...document.querySelectorAll("input.offset")]
+    .filter((o) => o.value.trim() !== "" && o.value.trim() !== "0" && kinds.includes(o.dataset.kind))
+    .map((o) => o.dataset.kind + ":" + Math.round(parseFloat(o.value)) + "m");
+  if (offsets.length) p.set("offsets", offsets.join(","));
   if (withStart && $("start").value) p.set("start", $("start").value);
   return { params: p };
 }

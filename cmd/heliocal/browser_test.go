@@ -278,6 +278,37 @@ func TestBrowserBuilder(t *testing.T) {
 		t.Errorf("space on the blue-hour checkbox did not tick it (%v)", err)
 	}
 
+	// An offset from the builder: sunset 30 minutes earlier, in the
+	// preview and in the feed's link.
+	if err := chromedp.Do(ctx,
+		chromedp.SetValue(id("off-sunset"), "-30"),
+		chromedp.Evaluate[chromedp.Void](`document.getElementById("builder").dispatchEvent(new Event("input"))`),
+		chromedp.Poll[chromedp.Void](`document.getElementById("https").value.includes("offsets=sunset%3A-30m")`),
+	); err != nil {
+		t.Fatalf("sunset offset: %v", err)
+	}
+	shifted, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](previewRows))
+	if err != nil {
+		t.Fatal(err)
+	}
+	firstSunset := func(rows []string) time.Time {
+		t.Helper()
+		for _, r := range rows {
+			if f := strings.Fields(r); len(f) == 3 && f[0] == from && f[1] == "sunset" {
+				tm, err := time.Parse("15:04", f[2])
+				if err != nil {
+					t.Fatal(err)
+				}
+				return tm
+			}
+		}
+		t.Fatalf("no sunset on %s in %q", from, rows)
+		return time.Time{}
+	}
+	if d := firstSunset(want).Sub(firstSunset(shifted)); d != 30*time.Minute {
+		t.Errorf("the preview's sunset with offset -30 minutes is %v before the plain one, want 30m", d)
+	}
+
 	// The shareable page: the same days as a printable table.
 	if err := chromedp.Do(ctx,
 		chromedp.EmulateViewport(390, 844),
@@ -330,4 +361,86 @@ func TestBrowserBuilder(t *testing.T) {
 		t.Errorf("dark mode background %s, want the dark palette's rgb(16, 22, 29)", bg)
 	}
 	shot(t, ctx, "builder-dark-1280.png")
+}
+
+// contrastProblems lists the text elements of the page whose contrast with
+// their background is below WCAG 2.1 SC 1.4.3 (AA): 4.5:1, or 3:1 for large
+// text (at least 24 px, or 18.66 px bold). The contrast ratio is
+// (L1 + 0.05) / (L2 + 0.05) with L the relative luminance of WCAG 2.1's
+// definition: L = 0.2126 R + 0.7152 G + 0.0722 B, each channel c = C/255
+// linearised as c/12.92 when c <= 0.04045, else ((c + 0.055)/1.055)^2.4.
+// The background is the first opaque one of the element or its ancestors;
+// a translucent text colour is laid over it. It also returns how many
+// elements it measured.
+const contrastProblems = `(() => {
+  const rgba = (s) => { const m = s.match(/[\d.]+/g).map(Number); return [m[0], m[1], m[2], m.length > 3 ? m[3] : 1]; };
+  const lum = ([r, g, b]) => { const f = (c) => { c /= 255; return c <= 0.04045 ? c / 12.92 : Math.pow((c + 0.055) / 1.055, 2.4); }; return 0.2126 * f(r) + 0.7152 * f(g) + 0.0722 * f(b); };
+  const background = (el) => {
+    for (; el; el = el.parentElement) { const c = rgba(getComputedStyle(el).backgroundColor); if (c[3] >= 1) return c; }
+    return [255, 255, 255, 1];
+  };
+  const out = [];
+  let measured = 0;
+  for (const el of document.body.querySelectorAll("*")) {
+    const ownText = [...el.childNodes].some((n) => n.nodeType === 3 && n.textContent.trim() !== "");
+    const field = (el.tagName === "INPUT" && el.type !== "checkbox" && el.value !== "");
+    if (!ownText && !field) continue;
+    const st = getComputedStyle(el);
+    if (el.getClientRects().length === 0 || st.visibility === "hidden") continue;
+    const bg = background(el);
+    const fg = rgba(st.color);
+    const mix = fg.slice(0, 3).map((c, i) => c * fg[3] + bg[i] * (1 - fg[3]));
+    const [a, b] = [lum(mix), lum(bg)];
+    const ratio = (Math.max(a, b) + 0.05) / (Math.min(a, b) + 0.05);
+    const size = parseFloat(st.fontSize), bold = parseInt(st.fontWeight, 10) >= 700;
+    const need = size >= 24 || (bold && size >= 18.66) ? 3 : 4.5;
+    measured++;
+    if (ratio < need) out.push(el.tagName.toLowerCase() + (el.id ? "#" + el.id : el.className ? "." + el.className : "") + " " + JSON.stringify((el.value || el.textContent).trim().slice(0, 30)) + ": " + ratio.toFixed(2) + ":1 (" + st.color + " on rgb(" + bg.slice(0, 3).join(", ") + "), need " + need + ")");
+  }
+  return {measured, out};
+})()`
+
+// Every text of the builder page (labels, body text, links, buttons, the
+// filled preview) meets the WCAG 2.1 AA contrast minimum (SC 1.4.3) at
+// 1280 px, in the light and in the dark palette.
+func TestBrowserContrast(t *testing.T) {
+	ts := builderServer(t)
+	ctx := browser(t)
+	for _, scheme := range []string{"light", "dark"} {
+		if _, err := chromedp.Call(ctx, emulation.SetEmulatedMedia, emulation.SetEmulatedMediaParams{
+			Features: []*emulation.MediaFeature{{Name: "prefers-color-scheme", Value: scheme}}}); err != nil {
+			t.Fatal(err)
+		}
+		if err := chromedp.Do(ctx,
+			chromedp.EmulateViewport(1280, 900),
+			chromedp.Navigate(ts.URL+"/"),
+			chromedp.WaitVisible(chromedp.ID("lat")),
+			chromedp.SendKeys(chromedp.ID("lat"), "-33.45"),
+			chromedp.SendKeys(chromedp.ID("lon"), "-70.67"),
+			chromedp.Poll[chromedp.Void](`document.getElementById("result").classList.contains("ready") && document.querySelector("#preview li") !== null`),
+			// The message box is measured too: shown with a text of its own.
+			chromedp.Evaluate[chromedp.Void](`(() => { const m = document.getElementById("message"); m.textContent = "Latitude: enter decimal degrees."; m.hidden = false; })()`),
+		); err != nil {
+			t.Fatalf("%s: %v", scheme, err)
+		}
+		var res struct {
+			Measured int
+			Out      []string
+		}
+		got, err := chromedp.Run(ctx, chromedp.Evaluate[map[string]any](contrastProblems))
+		if err != nil {
+			t.Fatal(err)
+		}
+		b, _ := json.Marshal(got)
+		if err := json.Unmarshal(b, &res); err != nil {
+			t.Fatal(err)
+		}
+		t.Logf("%s: %d text elements measured", scheme, res.Measured)
+		if res.Measured < 50 {
+			t.Errorf("%s: only %d text elements measured", scheme, res.Measured)
+		}
+		for _, p := range res.Out {
+			t.Errorf("%s: contrast below WCAG 2.1 AA: %s", scheme, p)
+		}
+	}
 }

@@ -2,7 +2,6 @@ package feed
 
 import (
 	"fmt"
-	"strconv"
 	"strings"
 	"time"
 
@@ -185,7 +184,7 @@ func hmShort(t time.Time, loc *time.Location) string {
 func describeLighting(s *siteInfo, e Event, spec config.KindSpec) (string, string) {
 	loc := s.TimeZone.Location
 	target := amount(e.Kind.DayLength)
-	lamp := words(e.Lamp)
+	lamp := hm(e.Lamp) // as the natural day below
 	var t strings.Builder
 	t.Grow(64)
 	t.WriteString("Lamps on ")
@@ -243,17 +242,4 @@ func describeLightingNote(s *siteInfo, n Note, last time.Time) (string, string) 
 	title := fmt.Sprintf("No lamps needed until %s: the natural day is ≥ %s", n.Until.Format("2 Jan"), target)
 	return title, fmt.Sprintf("%s at %s, from %s; lamps are needed again from %s.", title, s.where,
 		n.Date.Format("Monday 2 January 2006"), n.Until.Format("Monday 2 January 2006"))
-}
-
-// words writes a duration as "3 h 30 min", "45 min" or "2 h".
-func words(d time.Duration) string {
-	d = d.Round(time.Minute)
-	h, m := int(d/time.Hour), int(d%time.Hour/time.Minute)
-	switch {
-	case h == 0:
-		return strconv.Itoa(m) + " min"
-	case m == 0:
-		return strconv.Itoa(h) + " h"
-	}
-	return strconv.Itoa(h) + " h " + strconv.Itoa(m) + " min"
 }

@@ -4,6 +4,7 @@ import (
 	"context"
 	"encoding/csv"
 	"os"
+	"regexp"
 	"strings"
 	"testing"
 	"time"
@@ -247,5 +248,41 @@ func TestLightingEntries(t *testing.T) {
 	}
 	if days := int(n.Facts.Until.Sub(n.Date).Hours() / 24); lamps != 183-days {
 		t.Errorf("%d lamp entries, want %d (one per date needing lamps)", lamps, 183-days)
+	}
+}
+
+// Lamp titles and descriptions write every hours-and-minutes duration one
+// way, as the rest of the feed does: "1 h 08 min", never "1 h 8 min".
+func TestLightingDurationsOneFormat(t *testing.T) {
+	s := site(t, "vienna", 48.2, 16.4, "Europe/Vienna")
+	sk := sky(t, "2027-01-01", "2027-12-31")
+	spec := lightingSpec(t, "lighting:14h", nil)
+	es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date("2027-02-01"), date("2027-04-10"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	hmRe := regexp.MustCompile(`(\d+) h (\d+) min`)
+	lampRe := regexp.MustCompile(`\((\d+ h \d+ min|\d+ min)[,;]`)
+	padded := 0
+	for _, e := range es {
+		if e.Facts.Note {
+			continue
+		}
+		for _, text := range []string{e.Title, e.Description} {
+			for _, m := range hmRe.FindAllStringSubmatch(text, -1) {
+				if len(m[2]) != 2 {
+					t.Errorf("%s: %q writes minutes unpadded in %q", e.Date.Format(time.DateOnly), m[0], text)
+				} else if m[2][0] == '0' {
+					padded++
+				}
+			}
+		}
+		lamp := lampRe.FindStringSubmatch(e.Title)
+		if lamp == nil || !strings.Contains(e.Description, "("+lamp[1]+")") {
+			t.Errorf("%s: title %q and description %q write the lamp time differently", e.Date.Format(time.DateOnly), e.Title, e.Description)
+		}
+	}
+	if padded == 0 {
+		t.Error("no duration with fewer than 10 minutes in the window: the check did not run")
 	}
 }

@@ -110,9 +110,13 @@ func chartsFor(cfg *config.Config, now time.Time) func(context.Context, feed.Sit
 		if chart.Days, err = chartDays(sky, place, first, last); err != nil {
 			return nil, err
 		}
-		levels, marks := chartKinds(cfg, site.ID)
+		chart.Today = first
+		levels, marks, spanKinds := chartKinds(cfg, site.ID)
 		chart.Levels = levels
 		if chart.Marks, err = chartMarks(ctx, sky, place, marks, first, last); err != nil {
+			return nil, err
+		}
+		if err := chartClock(ctx, sky, place, site.TimeZone.Location, spanKinds, chart); err != nil {
 			return nil, err
 		}
 		return chart, nil
@@ -133,12 +137,13 @@ func chartDays(sky *feed.Sky, place feed.Place, first, last time.Time) ([]publis
 }
 
 // chartKinds collects, from every feed of the site, the photoperiod
-// thresholds (drawn as levels) and the yearly kinds drawn as marks: the
+// thresholds (drawn as levels), the yearly kinds drawn as marks: the
 // seasons, cross-quarter days, apsides and eclipses (not the Moon's phases,
-// a dozen lines a year). Each kind counts once.
-func chartKinds(cfg *config.Config, siteID string) ([]publish.Level, []config.Kind) {
+// which the chart draws as symbols of their own), and the lamp periods and
+// dark windows drawn on the clock. Each kind counts once.
+func chartKinds(cfg *config.Config, siteID string) ([]publish.Level, []config.Kind, []config.Kind) {
 	var levels []publish.Level
-	var marks []config.Kind
+	var marks, spanKinds []config.Kind
 	seen := map[string]bool{}
 	for _, f := range cfg.Feeds {
 		if f.Site != siteID {
@@ -150,13 +155,89 @@ func chartKinds(cfg *config.Config, siteID string) ([]publish.Level, []config.Ki
 			case seen[k.String()]:
 			case k.Name == "photoperiod":
 				levels = append(levels, publish.Level{Length: k.DayLength})
+			case k.Name == config.KindLighting || k.Name == "dark-window":
+				spanKinds = append(spanKinds, k)
 			case k.IsYearly() && (!k.IsMoon() || k.Family() == config.FamilyEclipse):
 				marks = append(marks, k)
 			}
 			seen[k.String()] = true
 		}
 	}
-	return levels, marks
+	return levels, marks, spanKinds
+}
+
+// chartKind parses a kind name the chart always draws.
+func chartKind(name string) config.Kind {
+	k, err := config.ParseKind(name)
+	if err != nil {
+		panic("chart kind " + name + ": " + err.Error())
+	}
+	return k
+}
+
+// chartClock fills in the sunrise and sunset of each day on the local clock,
+// the new and full Moons, and the pieces of each lamp period and dark window
+// (split at local midnight) of the span kinds.
+func chartClock(ctx context.Context, sky *feed.Sky, place feed.Place, loc *time.Location, spanKinds []config.Kind, c *publish.SiteChart) error {
+	first, last := c.Days[0].Date, c.Days[len(c.Days)-1].Date
+	kinds := append([]config.Kind{chartKind("sunrise"), chartKind("sunset"), chartKind("new-moon"), chartKind("full-moon")}, spanKinds...)
+	events, _, err := sky.Events(ctx, place, kinds, first, last)
+	if err != nil {
+		return err
+	}
+	index := func(date time.Time) int { return int(date.Sub(first).Hours()/24 + 0.5) }
+	for _, e := range events {
+		switch e.Kind.Name {
+		case "sunrise", "sunset":
+			i := index(e.Date)
+			if i < 0 || i >= len(c.Days) {
+				continue
+			}
+			d := &c.Days[i]
+			if e.Kind.Name == "sunrise" && !d.HasRise {
+				d.Rise, d.HasRise = clockOf(e.Start, loc), true
+			}
+			if e.Kind.Name == "sunset" && !d.HasSet {
+				d.Set, d.HasSet = clockOf(e.Start, loc), true
+			}
+		case "new-moon", "full-moon":
+			c.Phases = append(c.Phases, publish.Phase{At: e.Start, Full: e.Kind.Name == "full-moon"})
+		case config.KindLighting:
+			c.Lamps = append(c.Lamps, clockSpans(e.Start, e.End, loc)...)
+		case "dark-window":
+			c.Dark = append(c.Dark, clockSpans(e.Start, e.End, loc)...)
+		}
+	}
+	return nil
+}
+
+// clockOf is the local clock reading of t as time since midnight.
+func clockOf(t time.Time, loc *time.Location) time.Duration {
+	l := t.In(loc)
+	return time.Duration(l.Hour())*time.Hour + time.Duration(l.Minute())*time.Minute + time.Duration(l.Second())*time.Second
+}
+
+// clockSpans splits the span start..end at each local midnight into pieces
+// of one local date each.
+func clockSpans(start, end time.Time, loc *time.Location) []publish.ClockSpan {
+	var out []publish.ClockSpan
+	for start.Before(end) {
+		l := start.In(loc)
+		date := time.Date(l.Year(), l.Month(), l.Day(), 0, 0, 0, 0, time.UTC)
+		next := time.Date(l.Year(), l.Month(), l.Day()+1, 0, 0, 0, 0, loc)
+		to := 24 * time.Hour
+		if next.After(end) {
+			next, to = end, clockOf(end, loc)
+		}
+		if from := clockOf(start, loc); from < to {
+			out = append(out, publish.ClockSpan{Date: date, From: from, To: to})
+		}
+		if !next.After(start) {
+			break // a zone whose midnight does not exist: stop rather than loop
+		}
+		start = next
+	}
+	return out
 }
 
 // chartMarks computes the events of the mark kinds over first..last.

@@ -9,19 +9,29 @@ import (
 	"time"
 )
 
-// SiteChart is the year of one site as the index page draws it: how long the
-// Sun stays above the horizon and above each twilight limit on every day,
-// with the feed's notable events marked. The caller computes it (publish
-// does no astronomy); Above turns a day's crossings into the durations.
+// SiteChart is the year of one site as the index page draws it: sunrise and
+// sunset on the local clock through the year, the dates the day length
+// crosses each photoperiod threshold, lamp periods and dark windows where the
+// site's feeds have them, the Moon's new and full phases, and the feed's
+// notable events marked. The caller computes it (publish does no astronomy);
+// Above turns a day's crossings into the durations.
 type SiteChart struct {
 	// Days are consecutive local dates, in order (typically one year).
 	Days []ChartDay
+	// Today is the local date the chart is drawn for (the build's reference
+	// date), marked by a vertical line; zero for none.
+	Today time.Time
 	// Marks are dated events drawn as vertical lines, e.g. the equinoxes and
 	// solstices. Marks outside Days are left out.
 	Marks []Mark
-	// Levels are day lengths drawn as horizontal lines, e.g. a photoperiod
-	// threshold of 12 h.
+	// Levels are photoperiod thresholds: each date the day length crosses
+	// one is marked.
 	Levels []Level
+	// Phases are the Moon's new and full phases, drawn along the top.
+	Phases []Phase
+	// Lamps are lamp periods and Dark the dark windows, each piece within
+	// one local date.
+	Lamps, Dark []ClockSpan
 }
 
 // ChartDay is one local day of a SiteChart. Each duration is the time the
@@ -36,6 +46,10 @@ type ChartDay struct {
 	Civil        time.Duration // above −6°: civil dawn to civil dusk
 	Nautical     time.Duration // above −12°
 	Astronomical time.Duration // above −18°
+	// Rise and Set are the local clock times of sunrise and sunset (time
+	// since local midnight as the clock reads), when HasRise and HasSet.
+	Rise, Set       time.Duration
+	HasRise, HasSet bool
 }
 
 // Mark is an event drawn as a vertical line at its date (and time).
@@ -44,10 +58,23 @@ type Mark struct {
 	Label string
 }
 
-// Level is a day length drawn as a horizontal line.
+// Level is a photoperiod threshold, a day length.
 type Level struct {
 	Length time.Duration
 	Label  string
+}
+
+// Phase is a new or full Moon.
+type Phase struct {
+	At   time.Time
+	Full bool
+}
+
+// ClockSpan is a stretch of one local date on the clock, From to To since
+// local midnight.
+type ClockSpan struct {
+	Date     time.Time // the local date, at 00:00 UTC
+	From, To time.Duration
 }
 
 // Above returns how long the Sun stays above a limit during the local day
@@ -92,31 +119,33 @@ func Above(dayStart, dayEnd time.Time, rising, setting []time.Time, alwaysAbove 
 	return total
 }
 
-// Chart geometry, in SVG user units.
+// Chart geometry, in SVG user units. The clock runs down the plot, midnight
+// at the top and at the bottom.
 const (
 	chartW     = 760
-	chartH     = 300
+	chartH     = 318
 	plotLeft   = 44
-	plotTop    = 30
+	plotTop    = 44
 	plotW      = 700
 	plotH      = 240 // 10 units per hour
 	plotBottom = plotTop + plotH
+	phaseY     = plotTop - 6 // the row of Moon phase symbols
 )
 
 type chartView struct {
-	ID      string // unique id for aria references
-	Title   string
-	Summary string
-	Bands   []bandView
-	Months  []tickView
-	Hours   []tickView
-	Marks   []markView
-	Levels  []levelView
-}
-
-type bandView struct {
-	Class  string
-	Points string
+	ID         string // unique id for aria references
+	Title      string
+	Summary    string
+	Rise, Set  string // path data of the sunrise and sunset curves
+	Lamps      string // path data of the lamp periods, one stroke a day
+	Dark       string // path data of the dark windows
+	Step       string // width of one day
+	Months     []tickView
+	Hours      []tickView
+	Marks      []markView
+	Thresholds []thresholdView
+	Phases     []phaseView
+	Today      *todayView
 }
 
 type tickView struct {
@@ -131,9 +160,20 @@ type markView struct {
 	Shown         bool // the label fits above the plot
 }
 
-type levelView struct {
-	Y, TX, TY string
-	Label     string
+type thresholdView struct {
+	X, TX, TY string
+	Label     string // e.g. "12 h ↑"
+	Text      string // in words, for the tooltip and the caption
+}
+
+type phaseView struct {
+	X, Y string
+	Full bool
+	Date string
+}
+
+type todayView struct {
+	X, TX, TY, Date string
 }
 
 func num(v float64) string {
@@ -155,36 +195,58 @@ func clipHours(d time.Duration) float64 {
 	return h
 }
 
-func yOf(h float64) float64 { return plotBottom - h*plotH/24 }
+// yOf is the height of a clock time, h hours after local midnight.
+func yOf(h float64) float64 { return plotTop + h*plotH/24 }
 
-// bandPoints is the polygon of an area from 0 h up to each day's value.
-// Runs of equal height are reduced to their ends, so a polar plateau costs
-// two points.
-func bandPoints(days []ChartDay, val func(ChartDay) time.Duration) string {
-	n := len(days)
-	step := float64(plotW) / float64(n)
-	type pt struct{ x, y float64 }
-	pts := []pt{{plotLeft, plotBottom}}
-	ys := make([]float64, n)
+// dayStep is the width of one day.
+func dayStep(n int) float64 { return float64(plotW) / float64(n) }
+
+// curve is the path of a clock time through the days, broken where a day
+// has none (the polar day and night).
+func curve(days []ChartDay, val func(ChartDay) (time.Duration, bool)) string {
+	step := dayStep(len(days))
+	var b strings.Builder
+	pen := false
 	for i, d := range days {
-		ys[i] = math.Round(yOf(clipHours(val(d)))*10) / 10
-	}
-	pts = append(pts, pt{plotLeft, ys[0]})
-	for i := range n {
-		if i > 0 && i < n-1 && ys[i] == ys[i-1] && ys[i] == ys[i+1] {
+		v, ok := val(d)
+		if !ok {
+			pen = false
 			continue
 		}
-		pts = append(pts, pt{plotLeft + (float64(i)+0.5)*step, ys[i]})
-	}
-	pts = append(pts, pt{plotLeft + plotW, ys[n-1]}, pt{plotLeft + plotW, plotBottom})
-	var b strings.Builder
-	for i, p := range pts {
-		if i > 0 {
+		if b.Len() > 0 {
 			b.WriteByte(' ')
 		}
-		b.WriteString(num(p.x))
+		if pen {
+			b.WriteByte('L')
+		} else {
+			b.WriteByte('M')
+		}
+		b.WriteString(num(plotLeft + (float64(i)+0.5)*step))
 		b.WriteByte(',')
-		b.WriteString(num(p.y))
+		b.WriteString(num(yOf(clipHours(v))))
+		pen = true
+	}
+	return b.String()
+}
+
+// spans is the path of clock spans, one vertical stroke (as wide as a day)
+// per piece.
+func spans(days []ChartDay, ss []ClockSpan) string {
+	if len(ss) == 0 {
+		return ""
+	}
+	first := days[0].Date
+	step := dayStep(len(days))
+	var b strings.Builder
+	for _, s := range ss {
+		i := int(math.Round(s.Date.Sub(first).Hours() / 24))
+		if i < 0 || i >= len(days) || s.To <= s.From {
+			continue
+		}
+		if b.Len() > 0 {
+			b.WriteByte(' ')
+		}
+		fmt.Fprintf(&b, "M%s,%sV%s", num(plotLeft+(float64(i)+0.5)*step), num(yOf(clipHours(s.From))), num(yOf(clipHours(s.To))))
 	}
 	return b.String()
 }
@@ -202,29 +264,37 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 	}
 	days := c.Days
 	first, last := days[0].Date, days[len(days)-1].Date
-	return &chartView{
-		ID:    "chart-" + id,
-		Title: chartTitle(siteName, first, last),
-		Bands: []bandView{
-			{"astro", bandPoints(days, func(d ChartDay) time.Duration { return d.Astronomical })},
-			{"naut", bandPoints(days, func(d ChartDay) time.Duration { return d.Nautical })},
-			{"civil", bandPoints(days, func(d ChartDay) time.Duration { return d.Civil })},
-			{"day", bandPoints(days, func(d ChartDay) time.Duration { return d.Daylight })},
-		},
-		Summary: chartSummary(days),
-		Months:  monthTicks(days),
-		Hours:   hourTicks(),
-		Marks:   markViews(c.Marks, first, last),
-		Levels:  levelViews(c.Levels),
+	v := &chartView{
+		ID:         "chart-" + id,
+		Title:      chartTitle(siteName, first, last),
+		Rise:       curve(days, func(d ChartDay) (time.Duration, bool) { return d.Rise, d.HasRise }),
+		Set:        curve(days, func(d ChartDay) (time.Duration, bool) { return d.Set, d.HasSet }),
+		Lamps:      spans(days, c.Lamps),
+		Dark:       spans(days, c.Dark),
+		Step:       num(math.Max(dayStep(len(days)), 1)),
+		Months:     monthTicks(days),
+		Hours:      hourTicks(),
+		Marks:      markViews(c.Marks, first, last),
+		Thresholds: thresholdViews(days, c.Levels),
+		Phases:     phaseViews(c.Phases, first, last),
+		Today:      todayMark(c.Today, days),
 	}
+	v.Summary = chartSummary(days)
+	for _, t := range v.Thresholds {
+		v.Summary += " " + t.Text + "."
+	}
+	if v.Today != nil {
+		v.Summary += " Today (" + v.Today.Date + ") is marked."
+	}
+	return v
 }
 
 // chartTitle names the site and the year (or the dates) the chart covers.
 func chartTitle(siteName string, first, last time.Time) string {
 	if first.Year() == last.Year() {
-		return fmt.Sprintf("Day length and twilight at %s, %d", siteName, first.Year())
+		return fmt.Sprintf("Sunrise and sunset at %s, %d", siteName, first.Year())
 	}
-	return fmt.Sprintf("Day length and twilight at %s, %s to %s", siteName,
+	return fmt.Sprintf("Sunrise and sunset at %s, %s to %s", siteName,
 		first.Format("2 Jan 2006"), last.Format("2 Jan 2006"))
 }
 
@@ -281,12 +351,12 @@ func monthTicks(days []ChartDay) []tickView {
 	return ticks
 }
 
-// hourTicks marks the day-length axis every 6 hours.
+// hourTicks marks the clock every 6 hours.
 func hourTicks() []tickView {
 	var ticks []tickView
 	for h := 0; h <= 24; h += 6 {
 		y := yOf(float64(h))
-		ticks = append(ticks, tickView{Y: num(y), TX: num(plotLeft - 6), TY: num(y + 4), Label: strconv.Itoa(h) + " h"})
+		ticks = append(ticks, tickView{Y: num(y), TX: num(plotLeft - 6), TY: num(y + 4), Label: fmt.Sprintf("%02d:00", h)})
 	}
 	return ticks
 }
@@ -320,7 +390,7 @@ func markViews(marks []Mark, first, last time.Time) []markView {
 		for r := range rowEnd {
 			if left > rowEnd[r]+6 {
 				rowEnd[r] = left + w
-				mv.Y1, mv.TY, mv.Shown = num(plotTop-2-12*float64(r)), num(plotTop-6-12*float64(r)), true
+				mv.Y1, mv.TY, mv.Shown = num(plotTop-10-12*float64(r)), num(plotTop-14-12*float64(r)), true
 				break
 			}
 		}
@@ -329,19 +399,74 @@ func markViews(marks []Mark, first, last time.Time) []markView {
 	return views
 }
 
-// levelViews draws each level as a horizontal line with its label (the
-// day length itself when it has none).
-func levelViews(levels []Level) []levelView {
-	var views []levelView
+// thresholdViews marks each date on which the day length crosses a
+// photoperiod threshold: the first day at or over it ("↑") or the first day
+// under it ("↓"). The labels alternate between two rows, left to right, so
+// that neighbours do not overlap.
+func thresholdViews(days []ChartDay, levels []Level) []thresholdView {
+	step := dayStep(len(days))
+	type crossing struct {
+		i    int
+		up   bool
+		lv   Level
+	}
+	var cs []crossing
 	for _, lv := range levels {
-		y := yOf(clipHours(lv.Length))
-		label := lv.Label
-		if label == "" {
-			label = formatHours(lv.Length)
+		for i := 1; i < len(days); i++ {
+			was, is := days[i-1].Daylight >= lv.Length, days[i].Daylight >= lv.Length
+			if was != is {
+				cs = append(cs, crossing{i: i, up: is, lv: lv})
+			}
 		}
-		views = append(views, levelView{Y: num(y), TX: num(plotLeft + plotW - 4), TY: num(y - 3), Label: label})
+	}
+	sort.SliceStable(cs, func(a, b int) bool { return cs[a].i < cs[b].i })
+	views := make([]thresholdView, len(cs))
+	for n, c := range cs {
+		x := plotLeft + float64(c.i)*step
+		label := formatHours(c.lv.Length)
+		tv := thresholdView{X: num(x), TX: num(x + 2), TY: num(plotBottom - 4 - 12*float64(n%2))}
+		if c.up {
+			tv.Label = label + " ↑"
+			tv.Text = fmt.Sprintf("Day length reaches %s on %s", label, days[c.i].Date.Format("2 Jan"))
+		} else {
+			tv.Label = label + " ↓"
+			tv.Text = fmt.Sprintf("Day length drops under %s on %s", label, days[c.i].Date.Format("2 Jan"))
+		}
+		if c.lv.Label != "" {
+			tv.Text += " (" + c.lv.Label + ")"
+		}
+		views[n] = tv
 	}
 	return views
+}
+
+// phaseViews places the new and full Moons within first..last on the row
+// above the plot.
+func phaseViews(phases []Phase, first, last time.Time) []phaseView {
+	span := last.Add(24 * time.Hour).Sub(first)
+	var views []phaseView
+	for _, p := range phases {
+		off := p.At.Sub(first)
+		if off < 0 || off >= span {
+			continue
+		}
+		x := plotLeft + float64(plotW)*off.Hours()/span.Hours()
+		views = append(views, phaseView{X: num(x), Y: num(phaseY), Full: p.Full, Date: p.At.UTC().Format("2 Jan")})
+	}
+	return views
+}
+
+// todayMark is the line at today's date, nil when it is not in the chart.
+func todayMark(today time.Time, days []ChartDay) *todayView {
+	if today.IsZero() {
+		return nil
+	}
+	i := int(math.Round(today.Sub(days[0].Date).Hours() / 24))
+	if i < 0 || i >= len(days) {
+		return nil
+	}
+	x := plotLeft + (float64(i)+0.5)*dayStep(len(days))
+	return &todayView{X: num(x), TX: num(x + 3), TY: num(plotBottom + 26), Date: days[i].Date.Format("2 Jan 2006")}
 }
 
 // formatHours writes a day length as "12 h" or "14 h 30 min".

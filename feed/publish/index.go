@@ -228,20 +228,24 @@ code{font-size:.85em;word-break:break-all}
 figure{margin:0 0 1rem}
 figcaption{font-size:.9rem;color:#444}
 svg{max-width:100%;height:auto;display:block}
-svg text{font:10px system-ui,sans-serif;fill:#333}
+svg text{font:10px system-ui,sans-serif;fill:currentColor}
 svg .yl{text-anchor:end}
-svg .ll{text-anchor:end;fill:#1d2030;paint-order:stroke;stroke:#fbfaf6;stroke-width:3px}
-.night{fill:#1d2545}
-.astro{fill:#2f3e6e}
-.naut{fill:#4d659e}
-.civil{fill:#8ea8d8}
-.day{fill:#f5cd55}
-.grid{stroke:#ffffff;stroke-opacity:.25;stroke-width:.5}
-.tick{stroke:#333;stroke-width:.8}
+.plot{fill:none;stroke:currentColor;stroke-opacity:.35;stroke-width:.8}
+.grid{stroke:currentColor;stroke-opacity:.15;stroke-width:.5}
+.tick{stroke:currentColor;stroke-width:.8}
+.rise{fill:none;stroke:#c86a14;stroke-width:2}
+.set{fill:none;stroke:#5b4bb7;stroke-width:2}
+.lamp{fill:none;stroke:#1f9e89;stroke-opacity:.45}
+.dark{fill:none;stroke:#4a5a78;stroke-opacity:.35}
+.thr{stroke:#2e8b3e;stroke-width:1;stroke-dasharray:3 2}
+svg .tl{fill:#2e8b3e}
 .mark{stroke:#c0392b;stroke-width:1}
-.level{stroke:#1d2030;stroke-width:1;stroke-dasharray:4 3}
-.key{display:inline-block;width:.9em;height:.9em;vertical-align:-.1em;margin:0 .25em 0 .6em;border:1px solid #999}
-.key.night{background:#1d2545}.key.astro{background:#2f3e6e}.key.naut{background:#4d659e}.key.civil{background:#8ea8d8}.key.day{background:#f5cd55}
+.today{stroke:currentColor;stroke-width:1.5}
+.moon{stroke:currentColor;stroke-width:1;fill:none}
+.moon.full{fill:#e8c547}
+.key{display:inline-block;width:1.4em;height:0;vertical-align:.3em;margin:0 .25em 0 .6em;border-top:3px solid}
+.key.rise{border-color:#c86a14}.key.set{border-color:#5b4bb7}.key.lamp{border-top-width:.8em;vertical-align:-.1em;border-color:#1f9e8973}.key.dark{border-top-width:.8em;vertical-align:-.1em;border-color:#4a5a7859}.key.thr{border-top:2px dashed #2e8b3e}.key.mark{border-top:2px solid #c0392b}.key.today{border-top:2px solid currentColor}
+@media (prefers-color-scheme:dark){body{color:#e6e4de;background:#16181f}a{color:#8fb8ff}th,td{border-bottom-color:#333846}figcaption{color:#c4c2bc}.rise,.key.rise{stroke:#f0a04b;border-color:#f0a04b}.set,.key.set{stroke:#a99bff;border-color:#a99bff}.thr{stroke:#6cc47a}svg .tl{fill:#6cc47a}.mark{stroke:#ff7a6b}.dark{stroke:#9fb0d0}}
 </style>
 </head>
 <body>
@@ -257,23 +261,29 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{
 <section id="site-{{.ID}}">
 <h2>{{.Name}}</h2>
 <p class="place">{{.Coords}}, elevation {{.Elevation}}, time zone {{.Zone}}</p>
-{{with .Chart}}<figure>
-<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 760 300" width="760" height="300" role="img" aria-labelledby="{{.ID}}-t {{.ID}}-d">
+{{with .Chart}}{{$step := .Step}}<figure>
+<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 760 318" width="760" height="318" role="img" aria-label="{{.Title}}. {{.Summary}}" aria-labelledby="{{.ID}}-t {{.ID}}-d">
 <title id="{{.ID}}-t">{{.Title}}</title>
 <desc id="{{.ID}}-d">{{.Summary}}</desc>
-<rect class="night" x="44" y="30" width="700" height="240"/>
-{{range .Bands}}<polygon class="{{.Class}}" points="{{.Points}}"/>
+<rect class="plot" x="44" y="44" width="700" height="240"/>
+{{with .Dark}}<path class="dark" stroke-width="{{$step}}" d="{{.}}"><title>dark windows</title></path>
+{{end}}{{with .Lamps}}<path class="lamp" stroke-width="{{$step}}" d="{{.}}"><title>lamp periods</title></path>
 {{end}}{{range .Hours}}<line class="grid" x1="44" x2="744" y1="{{.Y}}" y2="{{.Y}}"/><text class="yl" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>
-{{end}}{{range .Months}}<line class="tick" x1="{{.X}}" x2="{{.X}}" y1="270" y2="275"/>{{if .Label}}<text x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>{{end}}
-{{end}}{{range .Levels}}<line class="level" x1="44" x2="744" y1="{{.Y}}" y2="{{.Y}}"/><text class="ll" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>
+{{end}}{{range .Months}}<line class="tick" x1="{{.X}}" x2="{{.X}}" y1="284" y2="289"/>{{if .Label}}<text x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>{{end}}
+{{end}}{{with .Rise}}<path class="rise" d="{{.}}"><title>sunrise</title></path>
+{{end}}{{with .Set}}<path class="set" d="{{.}}"><title>sunset</title></path>
+{{end}}{{range .Thresholds}}<line class="thr" x1="{{.X}}" x2="{{.X}}" y1="44" y2="284"><title>{{.Text}}</title></line><text class="tl" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>
 {{end}}{{range .Marks}}<line class="mark" x1="{{.X}}" x2="{{.X}}" y1="{{.Y1}}" y2="{{.Y2}}"><title>{{.Label}}, {{.Date}}</title></line>{{if .Shown}}<text class="ml" x="{{.X}}" y="{{.TY}}" text-anchor="{{.Anchor}}">{{.Label}}</text>{{end}}
+{{end}}{{range .Phases}}<circle class="moon{{if .Full}} full{{end}}" cx="{{.X}}" cy="{{.Y}}" r="3.5"><title>{{if .Full}}full Moon{{else}}new Moon{{end}}, {{.Date}}</title></circle>
+{{end}}{{with .Today}}<line class="today" x1="{{.X}}" x2="{{.X}}" y1="44" y2="296"><title>today, {{.Date}}</title></line><text x="{{.TX}}" y="{{.TY}}">today</text>
 {{end}}</svg>
-<figcaption>{{.Summary}} Hours per day with
-<span class="key day"></span>the Sun up,
-<span class="key civil"></span>civil twilight (Sun above −6°),
-<span class="key naut"></span>nautical (above −12°),
-<span class="key astro"></span>astronomical (above −18°) and
-<span class="key night"></span>full night.{{if .Marks}} Red lines:{{range $i, $m := .Marks}}{{if $i}};{{end}} {{$m.Label}} ({{$m.Date}}){{end}}.{{end}}{{if .Levels}} Dashed lines: day length{{range $i, $l := .Levels}}{{if $i}},{{end}} {{$l.Label}}{{end}}.{{end}}</figcaption>
+<figcaption>{{.Summary}} Local clock time (hours down, months across) of
+<span class="key rise"></span>sunrise and
+<span class="key set"></span>sunset{{if .Lamps}},
+<span class="key lamp"></span>lamp periods{{end}}{{if .Dark}},
+<span class="key dark"></span>dark windows{{end}}{{if .Thresholds}},
+<span class="key thr"></span>photoperiod threshold crossings{{end}}{{if .Today}},
+<span class="key today"></span>today{{end}}; along the top, ○ new and <span style="color:#e8c547">●</span> full Moon.{{if .Marks}} <span class="key mark"></span>Red lines:{{range $i, $m := .Marks}}{{if $i}};{{end}} {{$m.Label}} ({{$m.Date}}){{end}}.{{end}}</figcaption>
 </figure>
 {{end}}<table>
 <thead><tr><th>Feed</th><th class="num">Events</th><th class="num">Size</th><th>Subscribe</th></tr></thead>

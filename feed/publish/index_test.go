@@ -6,6 +6,7 @@ import (
 	"errors"
 	"io"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 	"testing"
@@ -239,6 +240,12 @@ func usnoChart(t *testing.T, s feed.Site) *SiteChart {
 				setting = append(setting, x.set)
 			}
 			cd.Daylight = Above(start, end, rising, setting, x.up)
+			if !x.rise.IsZero() {
+				cd.Rise, cd.HasRise = x.rise.Sub(start), true
+			}
+			if !x.set.IsZero() {
+				cd.Set, cd.HasSet = x.set.Sub(start), true
+			}
 			cd.Civil, cd.Nautical, cd.Astronomical = cd.Daylight, cd.Daylight, cd.Daylight
 		}
 		c.Days = append(c.Days, cd)
@@ -304,20 +311,28 @@ func polygonPoints(t *testing.T, pts string) [][2]float64 {
 	return out
 }
 
-// The chart of a polar site: the daylight band reaches the top (24 h) on a
-// polar day and the bottom (0 h) in the polar night, never beyond the plot.
+// The chart of a polar site: the sunrise and sunset curves on the clock,
+// broken through the polar day and night, the photoperiod threshold crossing,
+// the eclipse-style marks, today and the Moon's phases, inside the plot.
 func TestChartPolarDayAndNight(t *testing.T) {
 	_, camp := testSites(t)
 	c := usnoChart(t, camp)
+	c.Today = time.Date(2015, 3, 20, 0, 0, 0, 0, time.UTC)
+	// New Moon 2015-03-20 09:36 UTC and full Moon 2015-04-04 12:06 UTC, the
+	// Moons of that spring's solar and lunar eclipses (from memory; the
+	// test needs only their dates).
+	c.Phases = []Phase{{At: time.Date(2015, 3, 20, 9, 36, 0, 0, time.UTC)}, {At: time.Date(2015, 4, 4, 12, 6, 0, 0, time.UTC), Full: true}}
 	// Give the polar stretch its real extent: USNO marks 14 April as ****
 	// and 21 December as ----; fill the weeks around them the same way.
 	for i := range c.Days {
 		d := c.Days[i].Date
 		switch {
 		case d.After(time.Date(2015, 4, 14, 0, 0, 0, 0, time.UTC)) && d.Before(time.Date(2015, 8, 29, 0, 0, 0, 0, time.UTC)):
-			c.Days[i].Daylight, c.Days[i].Civil = 24*time.Hour, 25*time.Hour // over 24 h is clipped
+			c.Days[i].Daylight, c.Days[i].Civil = 24*time.Hour, 25*time.Hour
+			c.Days[i].HasRise, c.Days[i].HasSet = false, false
 		case d.After(time.Date(2015, 10, 26, 0, 0, 0, 0, time.UTC)) || d.Before(time.Date(2015, 2, 15, 0, 0, 0, 0, time.UTC)):
-			c.Days[i].Daylight, c.Days[i].Civil = 0, -time.Hour // below 0 is clipped
+			c.Days[i].Daylight, c.Days[i].Civil = 0, -time.Hour
+			c.Days[i].HasRise, c.Days[i].HasSet = false, false
 		}
 	}
 	opts := testOptions()
@@ -333,79 +348,90 @@ func TestChartPolarDayAndNight(t *testing.T) {
 		t.Fatalf("%d charts, want 1 (the other site has none)", len(svgs))
 	}
 	svg := svgs[0]
-	if svg.Attr["viewBox"] != "0 0 760 300" {
+	if svg.Attr["viewBox"] != "0 0 760 318" {
 		t.Errorf("viewBox %q", svg.Attr["viewBox"])
 	}
-	var day []*element
-	for _, p := range svg.all("polygon") {
-		if p.Attr["class"] == "day" {
-			day = append(day, p)
-		}
-		for _, pt := range polygonPoints(t, p.Attr["points"]) {
-			if pt[0] < plotLeft || pt[0] > plotLeft+plotW || pt[1] < plotTop || pt[1] > plotBottom {
-				t.Errorf("%s band point %v outside the plot", p.Attr["class"], pt)
-			}
-		}
+	if !strings.Contains(svg.Attr["aria-label"], "Sunrise and sunset at Driftwood Ice Camp") {
+		t.Errorf("aria-label %q", svg.Attr["aria-label"])
 	}
-	if len(day) != 1 {
-		t.Fatalf("%d daylight bands", len(day))
+	paths := map[string]string{}
+	for _, p := range svg.all("path") {
+		paths[p.Attr["class"]] = p.Attr["d"]
 	}
-	pts := polygonPoints(t, day[0].Attr["points"])
 	step := float64(plotW) / float64(len(c.Days))
-	yAt := func(date time.Time) float64 {
-		// the band's point nearest the middle of that day
-		x := plotLeft + (float64(date.YearDay()-1)+0.5)*step
-		best := pts[0]
-		for _, p := range pts[1:] {
-			if math.Abs(p[0]-x) < math.Abs(best[0]-x) {
-				best = p
-			}
-		}
-		if math.Abs(best[0]-x) > step/2 {
-			// a plateau reduced to its ends: the band is flat there
-			for i := 1; i < len(pts); i++ {
-				if a, b := pts[i-1], pts[i]; a[0] <= x && x <= b[0] && a[1] == b[1] {
-					return a[1]
-				}
-			}
-			t.Fatalf("no band point at %v", date)
-		}
-		return best[1]
-	}
-	check := func(date string, want float64) {
+	xOf := func(date string) string {
 		d, _ := time.Parse("2006-01-02", date)
-		if got := yAt(d); math.Abs(got-want) > 0.1 {
-			t.Errorf("%s: daylight band top at y=%.1f, want %.1f", date, got, want)
+		return num(plotLeft + (float64(d.YearDay()-1)+0.5)*step)
+	}
+	// Sunrise 05:55 and sunset 18:25 on 20 March (USNO, sun-0163/0164).
+	for _, x := range []struct{ class, point string }{
+		{"rise", xOf("2015-03-20") + "," + num(yOf(5+55.0/60))},
+		{"set", xOf("2015-03-20") + "," + num(yOf(18+25.0/60))},
+	} {
+		if !strings.Contains(paths[x.class], x.point) {
+			t.Errorf("%s curve %q lacks the point %s", x.class, paths[x.class], x.point)
 		}
 	}
-	check("2015-06-21", plotTop)    // polar day: 24 h
-	check("2015-04-14", plotTop)    // USNO ****
-	check("2015-12-21", plotBottom) // polar night: 0 h
-	check("2015-01-10", plotBottom)
-	check("2015-03-20", plotBottom-12.5*plotH/24) // 12 h 30 min
-
-	text := svg.text()
-	for _, s := range []string{"Day length and twilight at Driftwood Ice Camp <North>, 2015", "March equinox", "12 h photoperiod",
-		"The Sun stays up all day on", "It stays down all day on"} {
-		if !strings.Contains(text, s) {
-			t.Errorf("chart text lacks %q", s)
+	// No sunrise in the polar day or night: the curve has no point there
+	// and is broken into pieces.
+	for _, date := range []string{"2015-06-21", "2015-12-21"} {
+		if strings.Contains(paths["rise"], xOf(date)+",") {
+			t.Errorf("rise curve has a point on %s", date)
 		}
 	}
-	// The equinox mark is drawn at its date, the 12 h level at 12 h.
-	var markX, levelY string
+	if strings.Count(paths["rise"], "M") < 2 {
+		t.Errorf("rise curve not broken: %q", paths["rise"])
+	}
+	for _, f := range strings.FieldsFunc(paths["rise"]+" "+paths["set"], func(r rune) bool { return r == ' ' || r == 'M' || r == 'L' }) {
+		x, y, _ := strings.Cut(f, ",")
+		fx, _ := strconv.ParseFloat(x, 64)
+		fy, _ := strconv.ParseFloat(y, 64)
+		if fx < plotLeft || fx > plotLeft+plotW || fy < plotTop || fy > plotBottom {
+			t.Errorf("curve point %s outside the plot", f)
+		}
+	}
+	var markX, todayX string
+	var thr []string
 	for _, l := range svg.all("line") {
 		switch l.Attr["class"] {
 		case "mark":
 			markX = l.Attr["x1"]
-		case "level":
-			levelY = l.Attr["y1"]
+		case "thr":
+			thr = append(thr, l.Attr["x1"])
+		case "today":
+			todayX = l.Attr["x1"]
 		}
 	}
 	wantX := plotLeft + float64(plotW)*(78+22.75/24)/365
 	if x, _ := strconv.ParseFloat(markX, 64); math.Abs(x-wantX) > 0.1 {
 		t.Errorf("equinox mark at x=%s, want %.1f", markX, wantX)
 	}
-	if levelY != num(plotBottom-12*plotH/24) {
-		t.Errorf("12 h level at y=%s", levelY)
+	if todayX != xOf("2015-03-20") {
+		t.Errorf("today at x=%q, want %s", todayX, xOf("2015-03-20"))
+	}
+	// The day length reaches 12 h on 20 March (12 h 30 min, after a date
+	// with no row) and drops under it again.
+	if want := num(plotLeft + 78*step); !slices.Contains(thr, want) {
+		t.Errorf("threshold lines at %v, none at %s (20 Mar)", thr, want)
+	}
+	var full, newMoon int
+	for _, cl := range svg.all("circle") {
+		switch cl.Attr["class"] {
+		case "moon full":
+			full++
+		case "moon":
+			newMoon++
+		}
+	}
+	if full != 1 || newMoon != 1 {
+		t.Errorf("%d full and %d new Moon symbols, want 1 and 1", full, newMoon)
+	}
+	text := svg.text()
+	for _, s := range []string{"Sunrise and sunset at Driftwood Ice Camp <North>, 2015", "March equinox", "12 h ↑",
+		"Day length reaches 12 h on 20 Mar (12 h photoperiod)", "today", "full Moon, 4 Apr", "new Moon, 20 Mar",
+		"The Sun stays up all day on", "It stays down all day on"} {
+		if !strings.Contains(text, s) {
+			t.Errorf("chart text lacks %q", s)
+		}
 	}
 }

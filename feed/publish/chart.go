@@ -406,9 +406,9 @@ func markViews(marks []Mark, first, last time.Time) []markView {
 func thresholdViews(days []ChartDay, levels []Level) []thresholdView {
 	step := dayStep(len(days))
 	type crossing struct {
-		i    int
-		up   bool
-		lv   Level
+		i  int
+		up bool
+		lv Level
 	}
 	var cs []crossing
 	for _, lv := range levels {

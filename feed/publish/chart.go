@@ -202,17 +202,24 @@ func yOf(h float64) float64 { return plotTop + h*plotH/24 }
 func dayStep(n int) float64 { return float64(plotW) / float64(n) }
 
 // curve is the path of a clock time through the days, broken where a day
-// has none (the polar day and night).
+// has none (the polar day and night) and where the time passes midnight
+// from one day to the next (a sunset just after midnight near the midnight
+// Sun), rather than drawn across the whole plot.
 func curve(days []ChartDay, val func(ChartDay) (time.Duration, bool)) string {
 	step := dayStep(len(days))
 	var b strings.Builder
 	pen := false
+	var prev time.Duration
 	for i, d := range days {
 		v, ok := val(d)
 		if !ok {
 			pen = false
 			continue
 		}
+		if pen && (v-prev > 12*time.Hour || prev-v > 12*time.Hour) {
+			pen = false
+		}
+		prev = v
 		if b.Len() > 0 {
 			b.WriteByte(' ')
 		}

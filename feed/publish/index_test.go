@@ -435,3 +435,18 @@ func TestChartPolarDayAndNight(t *testing.T) {
 		}
 	}
 }
+
+// A clock time that passes midnight from one day to the next breaks the
+// curve instead of drawing a line across the plot.
+func TestCurveBreaksAtMidnight(t *testing.T) {
+	d0 := time.Date(2015, 7, 28, 0, 0, 0, 0, time.UTC)
+	days := []ChartDay{
+		{Date: d0, Set: 23*time.Hour + 50*time.Minute, HasSet: true},
+		{Date: d0.AddDate(0, 0, 1), Set: 10 * time.Minute, HasSet: true},
+		{Date: d0.AddDate(0, 0, 2), Set: 20 * time.Minute, HasSet: true},
+	}
+	got := curve(days, func(d ChartDay) (time.Duration, bool) { return d.Set, d.HasSet })
+	if strings.Count(got, "M") != 2 || strings.Count(got, "L") != 1 {
+		t.Errorf("curve %q, want two pieces (M, then M L)", got)
+	}
+}

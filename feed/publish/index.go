@@ -245,7 +245,7 @@ svg .tl{fill:#2e8b3e}
 .moon.full{fill:#e8c547}
 .key{display:inline-block;width:1.4em;height:0;vertical-align:.3em;margin:0 .25em 0 .6em;border-top:3px solid}
 .key.rise{border-color:#c86a14}.key.set{border-color:#5b4bb7}.key.lamp{border-top-width:.8em;vertical-align:-.1em;border-color:#1f9e8973}.key.dark{border-top-width:.8em;vertical-align:-.1em;border-color:#4a5a7859}.key.thr{border-top:2px dashed #2e8b3e}.key.mark{border-top:2px solid #c0392b}.key.today{border-top:2px solid currentColor}
-@media (prefers-color-scheme:dark){body{color:#e6e4de;background:#16181f}a{color:#8fb8ff}th,td{border-bottom-color:#333846}figcaption{color:#c4c2bc}.rise,.key.rise{stroke:#f0a04b;border-color:#f0a04b}.set,.key.set{stroke:#a99bff;border-color:#a99bff}.thr{stroke:#6cc47a}svg .tl{fill:#6cc47a}.mark{stroke:#ff7a6b}.dark{stroke:#9fb0d0}}
+@media (prefers-color-scheme:dark){body{color:#e6e4de;background:#16181f}.place{color:#b4b2ac}.caution{background:#2b2517}a{color:#8fb8ff}th,td{border-bottom-color:#333846}figcaption{color:#c4c2bc}.rise,.key.rise{stroke:#f0a04b;border-color:#f0a04b}.set,.key.set{stroke:#a99bff;border-color:#a99bff}.thr{stroke:#6cc47a}svg .tl{fill:#6cc47a}.mark{stroke:#ff7a6b}.dark{stroke:#9fb0d0}}
 </style>
 </head>
 <body>

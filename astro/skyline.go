@@ -1,6 +1,7 @@
 package astro
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"sort"
@@ -28,6 +29,11 @@ import (
 // scanned every 30 s for changes of side, each change being refined by
 // bisection to 1 ms. A passage behind a
 // narrow peak that is over in less than a scan step may be missed.
+//
+// The Moon's skyline crossings (MoonSkylineCrossings) use the same search
+// (skylineCrossings) on the Moon's track, with its topocentric semidiameter
+// in place of the Sun's 16′; its windows are widened by the range of that
+// semidiameter.
 
 // SkyPoint is one point of a skyline: apparent altitude (degrees) in the
 // direction Azimuth (degrees from the north through the east).
@@ -112,43 +118,58 @@ func (e *Ephemeris) SunSkylineCrossings(o Observer, sky Skyline, from, to time.T
 	if len(sky) == 0 {
 		return nil, &InputError{"skyline", 0, "needs at least one point"}
 	}
-	lo, hi := math.Inf(1), math.Inf(-1)
-	for _, p := range sky {
-		t := o.threshold(p.Altitude)
-		lo, hi = min(lo, t), max(hi, t)
-	}
+	lo, hi := skylineBounds(o, sky)
 	if lo == hi { // one altitude everywhere: the ordinary search
 		return e.SunCrossings(o, lo, from, to)
 	}
-	if err := e.checkSpan(from, to); err != nil {
-		return nil, err
-	}
-	lists, err := e.SunCrossingsMany(o, []float64{lo, hi}, from, to)
+	st, err := e.query(o, from, to)
 	if err != nil {
 		return nil, err
 	}
-	st := newSite(o)
-	a, b := unixSeconds(from), unixSeconds(to)
 	// f > 0: the upper limb is above the skyline.
 	f := func(sec float64) float64 {
 		sh := e.sun.sinAltitude(st, sec)
 		az := e.sun.azimuth(st, sec) * rad2deg
 		return math.Asin(sh)*rad2deg - o.threshold(sky.Altitude(az))
 	}
-	// Windows where the Sun's centre is between lo and hi.
+	return skylineCrossings(e.sun, st, lo, hi, f, unixSeconds(from), unixSeconds(to)), nil
+}
+
+// skylineBounds returns the lowest and the highest of the thresholds
+// (Observer.threshold, degrees) of the skyline's vertices: the upper limb
+// of a body of the Sun's semidiameter can meet the skyline only while its
+// centre's geometric altitude is between them.
+func skylineBounds(o Observer, sky Skyline) (lo, hi float64) {
+	lo, hi = math.Inf(1), math.Inf(-1)
+	for _, p := range sky {
+		t := o.threshold(p.Altitude)
+		lo, hi = min(lo, t), max(hi, t)
+	}
+	return lo, hi
+}
+
+// skylineCrossings is the skyline search for any body with track tr (the
+// Sun's or the Moon's): the changes of sign of f (positive while the upper
+// limb is above the skyline) in [a, b), for a body whose centre can meet
+// the skyline only while its geometric altitude is within lo..hi degrees.
+func skylineCrossings(tr *track, st *site, lo, hi float64, f func(sec float64) float64, a, b float64) []Crossing {
+	ext := tr.extrema(st, a, b)
+	// Windows where the centre is between lo and hi.
 	type mark struct {
 		t      float64
 		high   bool
 		rising bool
 	}
 	var marks []mark
-	for i, l := range lists {
-		for _, c := range l {
-			marks = append(marks, mark{unixSeconds(c.Time), i == 1, c.Direction == Rising})
+	for i, h := range [2]float64{lo, hi} {
+		for _, c := range tr.crossings(st, ext, math.Sin(h*deg2rad), a, b, nil) {
+			if c.t >= a && c.t < b {
+				marks = append(marks, mark{c.t, i == 1, c.rising})
+			}
 		}
 	}
 	sort.Slice(marks, func(i, j int) bool { return marks[i].t < marks[j].t })
-	h0 := math.Asin(e.sun.sinAltitude(st, a)) * rad2deg
+	h0 := math.Asin(tr.sinAltitude(st, a)) * rad2deg
 	inside := h0 > lo && h0 < hi
 	start := a
 	var windows [][2]float64
@@ -165,7 +186,7 @@ func (e *Ephemeris) SunSkylineCrossings(o Observer, sky Skyline, from, to time.T
 		windows = append(windows, [2]float64{start, b})
 	}
 	// Pad each window by two scan steps, so that a skyline crossing at a
-	// window's edge (the Sun leaving the window where the skyline is at its
+	// window's edge (the body leaving the window where the skyline is at its
 	// lowest or highest) is bracketed by clear signs, then merge overlaps.
 	merged := windows[:0]
 	for _, w := range windows {
@@ -205,7 +226,150 @@ func (e *Ephemeris) SunSkylineCrossings(o Observer, sky Skyline, from, to time.T
 			t0, f0 = t1, f1
 		}
 	}
+	return out
+}
+
+// The Moon's topocentric semidiameter stays within these bounds (degrees;
+// 14.7′ at apogee on the horizon to 17.0′ at perigee near the zenith, with
+// a margin): they widen the Moon's search windows, never narrow them.
+const moonSDLow, moonSDHigh = 14.0 / 60, 18.0 / 60
+
+// MoonSkylineCrossings is SunSkylineCrossings for the Moon: every instant
+// in [from, to) at which the upper limb of the topocentric Moon (its
+// semidiameter as at the top of moonrise.go) meets the skyline, with the
+// refraction of the skyline's altitude in the Moon's direction (Rising: it
+// appears; Setting: it disappears), sorted. A skyline at one altitude
+// everywhere gives exactly MoonRiseSet with that Horizon.
+func (e *MoonEphemeris) MoonSkylineCrossings(o Observer, sky Skyline, from, to time.Time) ([]Crossing, error) {
+	if len(sky) == 0 {
+		return nil, &InputError{"skyline", 0, "needs at least one point"}
+	}
+	if flat, ok := sky.flat(); ok {
+		o.Horizon = flat
+		return e.MoonRiseSet(o, from, to)
+	}
+	st, err := e.query(o, from, to)
+	if err != nil {
+		return nil, err
+	}
+	return e.moonSkyline(o, st, sky, unixSeconds(from), unixSeconds(to)), nil
+}
+
+// moonSkyline is the skyline search for the Moon in [a, b) (Unix s).
+func (e *MoonEphemeris) moonSkyline(o Observer, st *site, sky Skyline, a, b float64) []Crossing {
+	lo, hi := skylineBounds(o, sky)
+	// threshold() holds the Sun's 16′; the Moon's centre is lower or higher
+	// by the difference of the semidiameters.
+	lo, hi = lo+16.0/60-moonSDHigh, hi+16.0/60-moonSDLow
+	f := func(sec float64) float64 {
+		h := math.Asin(e.moon.sinAltitude(st, sec)) * rad2deg
+		az := e.moon.azimuth(st, sec) * rad2deg
+		sd := e.moonSemidiameter(st, sec) * rad2deg
+		return h - (o.threshold(sky.Altitude(az)) + 16.0/60 - sd)
+	}
+	return skylineCrossings(e.moon, st, lo, hi, f, a, b)
+}
+
+// flat reports whether the skyline has one altitude in every direction,
+// and that altitude.
+func (s Skyline) flat() (float64, bool) {
+	if len(s) == 0 {
+		return 0, false
+	}
+	for _, p := range s[1:] {
+		if p.Altitude != s[0].Altitude {
+			return 0, false
+		}
+	}
+	return s[0].Altitude, true
+}
+
+// MoonSkylineRiseSet returns the moonrises (Rising) and moonsets (Setting)
+// over the skyline in [from, to), sorted: within each passage of the Moon
+// across the sky (from one lower culmination to the next), its first
+// appearance over the skyline and its last disappearance behind it. The
+// times it is hidden behind a peak in between are left out (they are in
+// MoonSkylineCrossings), and a passage that begins (or ends) with the Moon
+// over the skyline has no moonrise (or moonset), as over a flat horizon. A
+// skyline at one altitude everywhere gives exactly MoonRiseSet with that
+// Horizon.
+func (e *MoonEphemeris) MoonSkylineRiseSet(o Observer, sky Skyline, from, to time.Time) ([]Crossing, error) {
+	if len(sky) == 0 {
+		return nil, &InputError{"skyline", 0, "needs at least one point"}
+	}
+	if flat, ok := sky.flat(); ok {
+		o.Horizon = flat
+		return e.MoonRiseSet(o, from, to)
+	}
+	st, err := e.query(o, from, to)
+	if err != nil {
+		return nil, err
+	}
+	// Search beyond [from, to) so that every passage overlapping it is
+	// whole: the track reaches two days beyond the queries allowed.
+	lo, hi := e.moon.coverage()
+	a, b := max(unixSeconds(from)-1.5*secondsPerDay, lo), min(unixSeconds(to)+1.5*secondsPerDay, hi)
+	cs := e.moonSkyline(o, st, sky, a, b)
+	var bounds []float64 // lower culminations
+	for _, x := range e.moon.extrema(st, a, b) {
+		if !x.upper {
+			bounds = append(bounds, x.t)
+		}
+	}
+	var out []Crossing
+	keep := func(c Crossing) {
+		if !c.Time.Before(from) && c.Time.Before(to) {
+			out = append(out, c)
+		}
+	}
+	for i := 0; i < len(cs); {
+		// the passage of cs[i]: up to the next lower culmination after it
+		t := unixSeconds(cs[i].Time)
+		k := sort.SearchFloat64s(bounds, t)
+		j := i
+		for j < len(cs) && (k == len(bounds) || unixSeconds(cs[j].Time) < bounds[k]) {
+			j++
+		}
+		if cs[i].Direction == Rising {
+			keep(cs[i])
+		}
+		if last := cs[j-1]; last.Direction == Setting {
+			keep(last)
+		}
+		i = j
+	}
 	return out, nil
+}
+
+// MoonSkylineDays is MoonDays over a skyline: the moonrises and moonsets of
+// MoonSkylineRiseSet grouped by local date; a date with neither is
+// AlwaysAbove when the Moon's upper limb is over the skyline in the middle
+// of the date.
+func (e *MoonEphemeris) MoonSkylineDays(ctx context.Context, o Observer, sky Skyline, loc *time.Location, first, last time.Time) ([]Day, error) {
+	if flat, ok := sky.flat(); ok {
+		o.Horizon = flat
+		return e.MoonDays(ctx, o, loc, first, last)
+	}
+	spans, err := localDays(ctx, "MoonSkylineDays", loc, first, last, 0)
+	if err != nil {
+		return nil, err
+	}
+	if err := o.Validate(); err != nil {
+		return nil, err
+	}
+	if len(spans) == 0 {
+		return nil, nil
+	}
+	cs, err := e.MoonSkylineRiseSet(o, sky, spans[0].start, spans[len(spans)-1].end)
+	if err != nil {
+		return nil, err
+	}
+	st := newSite(o)
+	return groupDays(ctx, spans, cs, func(sec float64) bool {
+		az := e.moon.azimuth(st, sec) * rad2deg
+		h0 := (o.threshold(sky.Altitude(az))+16.0/60)*deg2rad - e.moonSemidiameter(st, sec)
+		return e.moon.sinAltitude(st, sec) > math.Sin(h0)
+	})
 }
 
 // String writes a skyline as "[az, alt] …" for messages.

@@ -3,6 +3,7 @@ package feed
 import (
 	"context"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 	"testing"
@@ -790,6 +791,67 @@ func TestNoonClear(t *testing.T) {
 	for _, e := range ev {
 		if d := e.Altitude - limb; d < -0.4 || d > 0.4 {
 			t.Errorf("%s: noon altitude %.2f°, the limb meets 25° at %.2f°", e.Date.Format(time.DateOnly), e.Altitude, limb)
+		}
+	}
+}
+
+// Moonrise and moonset at a site with a skyline (the demo's invented
+// valley) over a month: each is one of the Moon's crossings of the skyline
+// (astro.MoonSkylineCrossings), the first appearance or last disappearance
+// of a passage, and the description says so. A skyline at 2° all round
+// gives the same events as horizon: 2.
+func TestSkylineMoon(t *testing.T) {
+	s := site(t, "valley", 47.05, 11.2, "Europe/Vienna")
+	s.Skyline = [][2]float64{{0, 3}, {100, 12}, {150, 4}, {176, 25}, {184, 25}, {190, 4}, {260, 15}, {300, 3}}
+	sk := sky(t, "2027-03-01", "2027-03-31")
+	kinds := mustKinds(t, "moonrise", "moonset")
+	ev, notes, err := sk.Events(context.Background(), PlaceOf(s), kinds, date("2027-03-01"), date("2027-03-31"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	me, err := sk.moonEphemeris()
+	if err != nil {
+		t.Fatal(err)
+	}
+	p := PlaceOf(s)
+	all, err := me.MoonSkylineCrossings(p.Observer, p.Skyline, date("2027-02-27"), date("2027-04-03"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(ev) < 56 || len(notes) < 2 || len(all) <= len(ev)+2 {
+		t.Fatalf("%d events, %d notes, %d skyline crossings (want the Moon hidden behind a peak on some days)", len(ev), len(notes), len(all))
+	}
+	for _, e := range ev {
+		i := slices.IndexFunc(all, func(c astro.Crossing) bool { return c.Time.Equal(e.Start) })
+		if i < 0 || all[i].Direction != e.Direction {
+			t.Fatalf("%s %v is not a crossing of the skyline", e.Kind.Name, e.Start)
+		}
+		// a moonrise follows a moonset or a stretch below the skyline
+		// longer than a hidden moment behind a peak
+		if e.Direction == astro.Rising && i > 0 && e.Start.Sub(all[i-1].Time) < 2*time.Hour {
+			t.Errorf("moonrise %v only %v after the Moon went behind the skyline: a reappearance", e.Start, e.Start.Sub(all[i-1].Time))
+		}
+		_, desc := describe(newSiteInfo(s), e)
+		if !strings.Contains(desc, "the site's skyline") {
+			t.Errorf("%s: %q", e.Kind.Name, desc)
+		}
+	}
+
+	flat := site(t, "flat", 47.05, 11.2, "Europe/Vienna")
+	flat.Skyline = [][2]float64{{0, 2}, {180, 2}}
+	hill := site(t, "hill", 47.05, 11.2, "Europe/Vienna")
+	hill.Horizon = 2
+	a, _, err := sk.Events(context.Background(), PlaceOf(flat), kinds, date("2027-03-01"), date("2027-03-31"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, _, err := sk.Events(context.Background(), PlaceOf(hill), kinds, date("2027-03-01"), date("2027-03-31"))
+	if err != nil || len(a) != len(b) {
+		t.Fatalf("%d and %d events, %v", len(a), len(b), err)
+	}
+	for i := range a {
+		if !a[i].Start.Equal(b[i].Start) || a[i].Azimuth != b[i].Azimuth {
+			t.Errorf("flat skyline %v, horizon 2 %v", a[i].Start, b[i].Start)
 		}
 	}
 }

@@ -95,7 +95,14 @@ func (c *collector) moonRiseSet(k config.Kind) error {
 	if err != nil {
 		return err
 	}
-	days, err := me.MoonDays(c.ctx, c.p.Observer, c.p.Location, midnight(c.first, c.p.Location), midnight(c.last, c.p.Location))
+	first, last := midnight(c.first, c.p.Location), midnight(c.last, c.p.Location)
+	var days []astro.Day
+	if len(c.p.Skyline) > 0 {
+		// first appearance over the skyline, last disappearance behind it
+		days, err = me.MoonSkylineDays(c.ctx, c.p.Observer, c.p.Skyline, c.p.Location, first, last)
+	} else {
+		days, err = me.MoonDays(c.ctx, c.p.Observer, c.p.Location, first, last)
+	}
 	if err != nil {
 		return err
 	}
@@ -202,6 +209,12 @@ var moonHorizonMeaning = map[string]string{
 	"moonset":  "The Moon's upper limb disappears below the horizon as seen from the site (%s).",
 }
 
+// moonSkylineMeaning is moonHorizonMeaning for a site with a skyline.
+var moonSkylineMeaning = map[string]string{
+	"moonrise": "The Moon's upper limb first appears over the site's skyline (%s for the skyline's altitude).",
+	"moonset":  "The Moon's upper limb last disappears behind the site's skyline (%s for the skyline's altitude).",
+}
+
 // describeMoon gives the title and description of a Moon event.
 func describeMoon(s *siteInfo, e Event) (string, string) {
 	loc := s.TimeZone.Location
@@ -220,7 +233,11 @@ func describeMoon(s *siteInfo, e Event) (string, string) {
 		b.WriteString(FutureNote(e.Start))
 	case "moonrise", "moonset":
 		title = fmt.Sprintf("%s (%s, %s lit)", title, waxing(e), percent(e.Illuminated))
-		fmt.Fprintf(&b, "%s at %s, %s: the Moon is %s, %s lit.\nThe Moon %s.\n"+moonHorizonMeaning[e.Kind.Name],
+		meaning := moonHorizonMeaning[e.Kind.Name]
+		if len(s.Skyline) > 0 {
+			meaning = moonSkylineMeaning[e.Kind.Name]
+		}
+		fmt.Fprintf(&b, "%s at %s, %s: the Moon is %s, %s lit.\nThe Moon %s.\n"+meaning,
 			plainNames[e.Kind.Name], at, s.where, waxing(e), percent(e.Illuminated), bearing(e), s.refraction)
 	case "moon-transit":
 		title = "Moon highest, " + height(e.Altitude, "up")

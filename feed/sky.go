@@ -77,7 +77,9 @@ type Place struct {
 	Location *time.Location
 	// Skyline, when set, is the horizon per direction: sunrise and sunset
 	// are the Sun's first appearance over it and last disappearance behind
-	// it, and day lengths count the time above it (direct Sun).
+	// it, and day lengths count the time above it (direct Sun); moonrise
+	// and moonset likewise are the Moon's first appearance and last
+	// disappearance in each of its passages across the sky.
 	Skyline astro.Skyline
 }
 

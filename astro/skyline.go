@@ -241,18 +241,27 @@ const moonSDLow, moonSDHigh = 14.0 / 60, 18.0 / 60
 // appears; Setting: it disappears), sorted. A skyline at one altitude
 // everywhere gives exactly MoonRiseSet with that Horizon.
 func (e *MoonEphemeris) MoonSkylineCrossings(o Observer, sky Skyline, from, to time.Time) ([]Crossing, error) {
+	st, flat, err := e.moonSkylineQuery(o, sky, from, to)
+	if err != nil || st == nil {
+		return flat, err
+	}
+	return e.moonSkyline(o, st, sky, unixSeconds(from), unixSeconds(to)), nil
+}
+
+// moonSkylineQuery checks a Moon skyline query and returns the site for the
+// search, or (nil site) the result of MoonRiseSet for a skyline at one
+// altitude everywhere.
+func (e *MoonEphemeris) moonSkylineQuery(o Observer, sky Skyline, from, to time.Time) (*site, []Crossing, error) {
 	if len(sky) == 0 {
-		return nil, &InputError{"skyline", 0, "needs at least one point"}
+		return nil, nil, &InputError{"skyline", 0, "needs at least one point"}
 	}
 	if flat, ok := sky.flat(); ok {
 		o.Horizon = flat
-		return e.MoonRiseSet(o, from, to)
+		cs, err := e.MoonRiseSet(o, from, to)
+		return nil, cs, err
 	}
 	st, err := e.query(o, from, to)
-	if err != nil {
-		return nil, err
-	}
-	return e.moonSkyline(o, st, sky, unixSeconds(from), unixSeconds(to)), nil
+	return st, nil, err
 }
 
 // moonSkyline is the skyline search for the Moon in [a, b) (Unix s).
@@ -294,16 +303,9 @@ func (s Skyline) flat() (float64, bool) {
 // skyline at one altitude everywhere gives exactly MoonRiseSet with that
 // Horizon.
 func (e *MoonEphemeris) MoonSkylineRiseSet(o Observer, sky Skyline, from, to time.Time) ([]Crossing, error) {
-	if len(sky) == 0 {
-		return nil, &InputError{"skyline", 0, "needs at least one point"}
-	}
-	if flat, ok := sky.flat(); ok {
-		o.Horizon = flat
-		return e.MoonRiseSet(o, from, to)
-	}
-	st, err := e.query(o, from, to)
-	if err != nil {
-		return nil, err
+	st, flat, err := e.moonSkylineQuery(o, sky, from, to)
+	if err != nil || st == nil {
+		return flat, err
 	}
 	// Search beyond [from, to) so that every passage overlapping it is
 	// whole: the track reaches two days beyond the queries allowed.

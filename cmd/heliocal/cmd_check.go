@@ -13,6 +13,7 @@ import (
 
 	"heliocal/config"
 	"heliocal/feed/ical"
+	"heliocal/feed/publish"
 )
 
 func newCheckCommand(g *globals) *cobra.Command {
@@ -230,12 +231,5 @@ func writeCheckText(g *globals, r *checkReport, notes []string) {
 	}
 }
 
-func size(n int) string {
-	switch {
-	case n >= 1_000_000:
-		return fmt.Sprintf("%.1f MB", float64(n)/1e6)
-	case n >= 1000:
-		return fmt.Sprintf("%.0f kB", float64(n)/1e3)
-	}
-	return fmt.Sprintf("%d B", n)
-}
+// size writes a feed's size as every size heliocal reports.
+func size(n int) string { return publish.FormatBytes(int64(n)) }

@@ -121,13 +121,8 @@ func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Tim
 	if !o.quiet {
 		return nil // the summary has listed the oversize feeds
 	}
-	for _, t := range st.Trimmed {
-		fmt.Fprintf(g.stderr, "note: feed %q shortened to %s to stay under service.max_feed_bytes (%d): now %d bytes\n",
-			t.Feed.ID, t.To.Format(time.DateOnly), cfg.Service.MaxFeedBytes, t.Feed.Bytes)
-	}
-	for _, f := range st.Oversize {
-		fmt.Fprintf(g.stderr, "warning: feed %q is %d bytes, over service.max_feed_bytes (%d): some web calendars drop events from subscriptions this large\n",
-			f.ID, f.Bytes, cfg.Service.MaxFeedBytes)
+	for _, w := range publish.Warnings(st) {
+		fmt.Fprintln(g.stderr, w)
 	}
 	return nil
 }

@@ -48,7 +48,7 @@ type OversizeError struct {
 }
 
 func (e *OversizeError) Error() string {
-	return fmt.Sprintf("%d bytes, over service.max_feed_bytes (%d): shorten days_back/days_ahead, split the kinds, or set service.oversize: trim", e.Bytes, e.Limit)
+	return fmt.Sprintf("%s, over service.max_feed_bytes (%s): shorten days_back/days_ahead, split the kinds, or set service.oversize: trim", FormatBytes(int64(e.Bytes)), FormatBytes(int64(e.Limit)))
 }
 
 // trimToFit drops c's entries from the far end of its window, whole local

@@ -68,8 +68,9 @@ func formatCount(n int) string {
 	return b.String()
 }
 
-// formatBytes writes a size in SI units: "812 B", "41.2 kB", "5.2 MB".
-func formatBytes(n int64) string {
+// FormatBytes writes a size in SI units: "812 B", "41.2 kB", "5.2 MB"; every
+// size heliocal reports is written this way.
+func FormatBytes(n int64) string {
 	switch {
 	case n < 1000:
 		return strconv.FormatInt(n, 10) + " B"
@@ -123,7 +124,7 @@ func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, 
 	for _, f := range l.feeds {
 		events += f.Events
 		size += int64(f.Bytes)
-		fv := feedView{ID: f.ID, Title: f.Title, File: f.File, Events: formatCount(f.Events), Size: formatBytes(int64(f.Bytes))}
+		fv := feedView{ID: f.ID, Title: f.Title, File: f.File, Events: formatCount(f.Events), Size: FormatBytes(int64(f.Bytes))}
 		if opts.Page != nil {
 			fv.Description = opts.Page.Descriptions[f.ID]
 		}
@@ -137,7 +138,7 @@ func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, 
 		bySite[f.Site] = append(bySite[f.Site], fv)
 	}
 	v.Events = formatCount(events)
-	v.Size = formatBytes(size)
+	v.Size = FormatBytes(size)
 
 	charts := opts.Charts
 	if limit := opts.MaxCharts; charts != nil {

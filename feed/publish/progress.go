@@ -117,7 +117,7 @@ func Summary(st Stats, dir string) string {
 	fmt.Fprintf(&b, "%s %s (%s written, %s unchanged), %s events, %s in %.2f s to %s",
 		formatCount(st.Feeds), plural(st.Feeds, "feed", "feeds"),
 		formatCount(st.FeedsWritten), formatCount(st.FeedsUnchanged),
-		formatCount(st.Events), formatBytes(st.Bytes), st.Elapsed.Seconds(), displayDir(dir))
+		formatCount(st.Events), FormatBytes(st.Bytes), st.Elapsed.Seconds(), displayDir(dir))
 	if st.Shard.Sharded() {
 		switch st.Index {
 		case IndexPending:
@@ -133,15 +133,26 @@ func Summary(st Stats, dir string) string {
 		fmt.Fprintf(&b, "removed %d leftover temporary %s of an interrupted run\n",
 			st.TempRemoved, plural(st.TempRemoved, "file", "files"))
 	}
-	for _, t := range st.Trimmed {
-		fmt.Fprintf(&b, "note: %s shortened to %s to stay under %s (now %s, %d events)\n",
-			t.Feed.File, t.To.Format("2006-01-02"), formatBytes(int64(st.MaxFeedBytes)), formatBytes(int64(t.Feed.Bytes)), t.Feed.Events)
-	}
-	for _, f := range st.Oversize {
-		fmt.Fprintf(&b, "warning: %s is %s, over the %s limit: some web calendars drop events from larger subscriptions; shorten its window or split it by kind\n",
-			f.File, formatBytes(int64(f.Bytes)), formatBytes(int64(st.MaxFeedBytes)))
+	for _, w := range Warnings(st) {
+		b.WriteString(w + "\n")
 	}
 	return b.String()
+}
+
+// Warnings are the lines of Summary about feeds shortened to fit
+// MaxFeedBytes ("note: …") and feeds over it ("warning: …"), for a run that
+// prints nothing else.
+func Warnings(st Stats) []string {
+	var out []string
+	for _, t := range st.Trimmed {
+		out = append(out, fmt.Sprintf("note: %s shortened to %s to stay under %s (now %s, %d events)",
+			t.Feed.File, t.To.Format("2006-01-02"), FormatBytes(int64(st.MaxFeedBytes)), FormatBytes(int64(t.Feed.Bytes)), t.Feed.Events))
+	}
+	for _, f := range st.Oversize {
+		out = append(out, fmt.Sprintf("warning: %s is %s, over the %s limit: some web calendars drop events from larger subscriptions; shorten its window or split it by kind",
+			f.File, FormatBytes(int64(f.Bytes)), FormatBytes(int64(st.MaxFeedBytes))))
+	}
+	return out
 }
 
 func displayDir(dir string) string {

@@ -97,7 +97,7 @@ func TestOversize(t *testing.T) {
 	}
 	_, _, err = encodeFeed(t, cfg, f, &RenderOptions{MaxFeedBytes: 400000, Oversize: OversizeFail})
 	var oe *OversizeError
-	if !errors.As(err, &oe) || oe.Feed != "plot-sun" || oe.Bytes != len(whole) || !strings.Contains(err.Error(), "400000") {
+	if !errors.As(err, &oe) || oe.Feed != "plot-sun" || oe.Bytes != len(whole) || !strings.Contains(err.Error(), "(400.0 kB)") {
 		t.Fatalf("fail: %v", err)
 	}
 	cal, data, err := encodeFeed(t, cfg, f, &RenderOptions{MaxFeedBytes: 400000, Oversize: OversizeTrim})

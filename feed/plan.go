@@ -399,6 +399,7 @@ func (w *entryWriter) plan(pl *plan, pd planDate, times map[config.Kind]*kindTim
 	}
 	en.Start = start
 	fmt.Fprintf(&b, "From %s%s", localClock(start, loc), timeWords(*pl.start))
+	b.WriteString(skippedClock(*pl.start, start, loc))
 	switch {
 	case pl.end != nil:
 		end, ok := planTime(*pl.end, d, loc, times)
@@ -417,6 +418,7 @@ func (w *entryWriter) plan(pl *plan, pd planDate, times map[config.Kind]*kindTim
 		fmt.Fprintf(&b, " to %s", localClock(en.End, loc))
 		if pl.end != nil {
 			b.WriteString(timeWords(*pl.end))
+			b.WriteString(skippedClock(*pl.end, en.End, loc))
 		}
 		if ed := localDate(en.End, loc); ed.After(d) {
 			en.Facts.NextDay = true
@@ -440,6 +442,28 @@ func planTime(ts config.TimeSpec, d time.Time, loc *time.Location, times map[con
 		return time.Time{}, false
 	}
 	return t.Add(ts.Offset), true
+}
+
+// skippedClock says why a clock time of a plan is shown later than written:
+// the local clock skips it on that date (clocks set forward, as for summer
+// time), so clockOn moved it by the jump. It is "" otherwise.
+func skippedClock(ts config.TimeSpec, t time.Time, loc *time.Location) string {
+	if !ts.IsClock {
+		return ""
+	}
+	lt := t.In(loc)
+	shown := time.Duration(lt.Hour())*time.Hour + time.Duration(lt.Minute())*time.Minute
+	if shown == ts.Clock {
+		return ""
+	}
+	moved := (shown - ts.Clock + 24*time.Hour) % (24 * time.Hour)
+	why := "the clocks go forward"
+	if lt.IsDST() {
+		why = "the clocks go forward for summer time"
+	}
+	written := fmt.Sprintf("%02d:%02d", int(ts.Clock/time.Hour), int(ts.Clock%time.Hour/time.Minute))
+	return fmt.Sprintf(" (moved from %s, which the clocks skip on %s: %s by %s)", written,
+		lt.Format("Mon 2 Jan 2006"), why, amount(moved))
 }
 
 // timeWords says which event a plan time follows, " (30 min after

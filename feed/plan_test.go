@@ -215,5 +215,31 @@ func TestPlanClockSkipped(t *testing.T) {
 		if !e.Start.Equal(want[i]) || localDate(e.Start, loc) != e.Date {
 			t.Errorf("%s: starts %s, want %s", e.Date.Format(time.DateOnly), e.Start.In(loc), want[i].In(loc))
 		}
+		// the night the clocks skip 00:30, the description says it moved and why
+		moved := strings.Contains(e.Description, "moved from 00:30, which the clocks skip on Sun 14 Mar 2027: the clocks go forward for summer time by 1 h")
+		if moved != (i == 1) {
+			t.Errorf("%s: description %q (moved note %v)", e.Date.Format(time.DateOnly), e.Description, moved)
+		}
+	}
+}
+
+// In America/Santiago the clocks go from 00:00 to 01:00 on Sunday 6
+// September 2026 (tz database): a plan at "00:00" that night starts at 01:00
+// and its description says so.
+func TestPlanMidnightSkippedSaysSo(t *testing.T) {
+	s := site(t, "scl", -33.45, -70.67, "America/Santiago")
+	loc := s.TimeZone.Location
+	es := planEntries(t, s, "2026-09-05", "2026-09-06", config.Plan{Title: "Gate", Date: "every day", Start: "00:00", End: "02:00"})
+	if len(es) != 2 {
+		t.Fatalf("%d entries", len(es))
+	}
+	if got := es[1].Start.In(loc).Format("15:04"); got != "01:00" {
+		t.Fatalf("6 September starts %s, want 01:00", got)
+	}
+	if !strings.Contains(es[1].Description, "(moved from 00:00, which the clocks skip on Sun 6 Sep 2026: the clocks go forward for summer time by 1 h)") {
+		t.Errorf("description %q does not say the start moved", es[1].Description)
+	}
+	if strings.Contains(es[0].Description, "moved") || strings.Contains(es[1].Description, "moved from 02:00") {
+		t.Errorf("a clock time that exists is said to have moved: %q / %q", es[0].Description, es[1].Description)
 	}
 }

@@ -223,7 +223,7 @@ h2{font-size:1.25rem;margin:2rem 0 .2rem;border-top:1px solid #ddd;padding-top:1
 .place{color:#555;margin:.2rem 0 .8rem}
 .caution{border-left:4px solid #d08a00;background:#fff6e0;padding:.6rem .9rem;margin:1rem 0}
 table{border-collapse:collapse;width:100%}
-th,td{text-align:left;padding:.35rem .5rem;border-bottom:1px solid #e4e2dc;vertical-align:top}
+th,td{text-align:left;padding:.35rem .5rem;border-bottom:1px solid #e4e2dc;vertical-align:top;overflow-wrap:anywhere}
 td.num,th.num{text-align:right;white-space:nowrap}
 code{font-size:.85em;word-break:break-all}
 figure{margin:0 0 1rem}
@@ -246,7 +246,8 @@ svg .tl{fill:#2e8b3e}
 .moon.full{fill:#e8c547}
 .key{display:inline-block;width:1.4em;height:0;vertical-align:.3em;margin:0 .25em 0 .6em;border-top:3px solid}
 .key.rise{border-color:#c86a14}.key.set{border-color:#5b4bb7}.key.lamp{border-top-width:.8em;vertical-align:-.1em;border-color:#1f9e8973}.key.dark{border-top-width:.8em;vertical-align:-.1em;border-color:#4a5a7859}.key.thr{border-top:2px dashed #2e8b3e}.key.mark{border-top:2px solid #c0392b}.key.today{border-top:2px solid currentColor}
-@media (prefers-color-scheme:dark){body{color:#e6e4de;background:#16181f}.place{color:#b4b2ac}.caution{background:#2b2517}a{color:#8fb8ff}th,td{border-bottom-color:#333846}figcaption{color:#c4c2bc}.rise,.key.rise{stroke:#f0a04b;border-color:#f0a04b}.set,.key.set{stroke:#a99bff;border-color:#a99bff}.thr{stroke:#6cc47a}svg .tl{fill:#6cc47a}.mark{stroke:#ff7a6b}.dark{stroke:#9fb0d0}}
+@media (max-width:40rem){body{padding:.6rem}figure{padding-left:1rem}svg{overflow:visible}svg text{font-size:17px}svg .ml,svg .tl{display:none}table,tbody,tr,td{display:block}thead{display:none}tr{border-bottom:1px solid #e4e2dc;padding:.4rem 0}td{border:0;padding:.1rem 0}td.num{display:inline-block;margin-right:1rem}td.num:nth-of-type(2)::after{content:" events"}}
+@media (prefers-color-scheme:dark){body{color:#e6e4de;background:#16181f}.place{color:#b4b2ac}.caution{background:#2b2517}a{color:#8fb8ff}th,td,tr{border-bottom-color:#333846}figcaption{color:#c4c2bc}.rise,.key.rise{stroke:#f0a04b;border-color:#f0a04b}.set,.key.set{stroke:#a99bff;border-color:#a99bff}.thr{stroke:#6cc47a}svg .tl{fill:#6cc47a}.mark{stroke:#ff7a6b}.dark{stroke:#9fb0d0}}
 </style>
 </head>
 <body>

@@ -462,10 +462,12 @@ func TestAccessLog(t *testing.T) {
 		}
 	}
 
-	// A query's values never reach the log, only the parameter names.
+	// A query's values never reach the log, only the parameter names. (The
+	// values are ones no timestamp, duration or address can contain: a plain
+	// "47.5" once matched the seconds of the log line's own time.)
 	buf.Reset()
-	body(t, get(t, s.Handler(), "GET", "/feeds/meadowbrook-sun.ics?token=s3cr3t-value&lat=47.5&x%20y=p%40ss"))
-	if strings.Contains(buf.String(), "s3cr3t") || strings.Contains(buf.String(), "47.5") || strings.Contains(buf.String(), "p@ss") || strings.Contains(buf.String(), "p%40ss") {
+	body(t, get(t, s.Handler(), "GET", "/feeds/meadowbrook-sun.ics?token=s3cr3t-value&lat=N47.5q&x%20y=p%40ss"))
+	if strings.Contains(buf.String(), "s3cr3t") || strings.Contains(buf.String(), "N47.5q") || strings.Contains(buf.String(), "p@ss") || strings.Contains(buf.String(), "p%40ss") {
 		t.Errorf("access log records query values: %s", buf.String())
 	}
 	line = nil

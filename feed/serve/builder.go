@@ -256,20 +256,12 @@ func (s *Server) links(r *http.Request, q AdhocQuery, start string, days int) (h
 }
 
 func (s *Server) servePreview(w http.ResponseWriter, r *http.Request) {
-	q, hasStart, err := s.previewQuery(r, previewDays, previewDays)
-	if err != nil {
-		plain(w, http.StatusBadRequest, err.Error())
+	q, cal, start, ok := s.previewCalendar(w, r, previewDays)
+	if !ok {
 		return
-	}
-	cal, err := s.compute(r.Context(), q)
-	if s.computeFailed(w, q, err) {
-		return
-	}
-	start := ""
-	if hasStart {
-		start = q.Start.Format(time.DateOnly)
 	}
 	subDays := 0
+	var err error
 	if s.opts.Adhoc != nil {
 		subDays, err = s.subscribeDays(r.Context(), q)
 		if s.computeFailed(w, q, err) {
@@ -291,6 +283,26 @@ func (s *Server) servePreview(w http.ResponseWriter, r *http.Request) {
 	if r.Method != http.MethodHead {
 		w.Write(body)
 	}
+}
+
+// previewCalendar reads a preview or table query of at most maxDays days and
+// computes its calendar; start is the query's own start date ("" when it
+// gave none). It answers the request itself and reports false when the query
+// is bad or the computation fails.
+func (s *Server) previewCalendar(w http.ResponseWriter, r *http.Request, maxDays int) (q AdhocQuery, cal *feed.Calendar, start string, ok bool) {
+	q, hasStart, err := s.previewQuery(r, previewDays, maxDays)
+	if err != nil {
+		plain(w, http.StatusBadRequest, err.Error())
+		return q, nil, "", false
+	}
+	cal, err = s.compute(r.Context(), q)
+	if s.computeFailed(w, q, err) {
+		return q, nil, "", false
+	}
+	if hasStart {
+		start = q.Start.Format(time.DateOnly)
+	}
+	return q, cal, start, true
 }
 
 // computeFailed answers a failed computation and reports whether it did.
@@ -415,18 +427,9 @@ type tableView struct {
 }
 
 func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
-	q, hasStart, err := s.previewQuery(r, previewDays, maxTable)
-	if err != nil {
-		plain(w, http.StatusBadRequest, err.Error())
+	q, cal, start, ok := s.previewCalendar(w, r, maxTable)
+	if !ok {
 		return
-	}
-	cal, err := s.compute(r.Context(), q)
-	if s.computeFailed(w, q, err) {
-		return
-	}
-	start := ""
-	if hasStart {
-		start = q.Start.Format(time.DateOnly)
 	}
 	https, page := s.links(r, q, start, 0)
 	v := tableView{Page: s.page(), Title: cal.Title, Zone: q.Location.String(),

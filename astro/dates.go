@@ -123,6 +123,31 @@ func dateExists(loc *time.Location, date time.Time) bool {
 	return DateStart(loc, y, m, d+1).After(DateStart(loc, y, m, d))
 }
 
+// crossingDays is the shared body of the per-date searches (SunDays,
+// MoonDays, MoonSkylineDays): it checks the dates and the observer, finds
+// the crossings over the whole span of the local dates first..last with
+// find, and groups them by date with groupDays; up says whether the body is
+// above its threshold at sec, for a date without a crossing.
+func crossingDays(ctx context.Context, what string, o Observer, loc *time.Location, first, last time.Time,
+	find func(from, to time.Time) ([]Crossing, error), up func(st *site, sec float64) bool) ([]Day, error) {
+	spans, err := localDays(ctx, what, loc, first, last, 0)
+	if err != nil {
+		return nil, err
+	}
+	if err := o.Validate(); err != nil {
+		return nil, err
+	}
+	if len(spans) == 0 {
+		return nil, nil
+	}
+	cs, err := find(spans[0].start, spans[len(spans)-1].end)
+	if err != nil {
+		return nil, err
+	}
+	st := newSite(o)
+	return groupDays(ctx, spans, cs, func(sec float64) bool { return up(st, sec) })
+}
+
 // groupDays sorts the crossings cs (in order, covering the spans) into one
 // Day per date span. A date without a crossing gets AlwaysAbove or
 // AlwaysBelow from above(t), asked at the middle of the date. Shared by the

@@ -362,21 +362,8 @@ type Day struct {
 // Day. The dates must lie within Coverage(). It stops with ctx's error when
 // ctx is done.
 func (e *Ephemeris) SunDays(ctx context.Context, o Observer, altitude float64, loc *time.Location, first, last time.Time) ([]Day, error) {
-	spans, err := localDays(ctx, "SunDays", loc, first, last, 0)
-	if err != nil {
-		return nil, err
-	}
-	if err := o.Validate(); err != nil {
-		return nil, err
-	}
-	if len(spans) == 0 {
-		return nil, nil
-	}
-	cs, err := e.SunCrossings(o, altitude, spans[0].start, spans[len(spans)-1].end)
-	if err != nil {
-		return nil, err
-	}
-	st := newSite(o)
 	s0 := math.Sin(altitude * deg2rad)
-	return groupDays(ctx, spans, cs, func(sec float64) bool { return e.sun.sinAltitude(st, sec) > s0 })
+	return crossingDays(ctx, "SunDays", o, loc, first, last,
+		func(from, to time.Time) ([]Crossing, error) { return e.SunCrossings(o, altitude, from, to) },
+		func(st *site, sec float64) bool { return e.sun.sinAltitude(st, sec) > s0 })
 }

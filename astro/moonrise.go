@@ -305,20 +305,7 @@ func (e *MoonEphemeris) moonUp(o Observer, st *site, sec float64) bool {
 // dates must lie within Coverage(). It stops with ctx's error when ctx is
 // done.
 func (e *MoonEphemeris) MoonDays(ctx context.Context, o Observer, loc *time.Location, first, last time.Time) ([]Day, error) {
-	spans, err := localDays(ctx, "MoonDays", loc, first, last, 0)
-	if err != nil {
-		return nil, err
-	}
-	if err := o.Validate(); err != nil {
-		return nil, err
-	}
-	if len(spans) == 0 {
-		return nil, nil
-	}
-	cs, err := e.MoonRiseSet(o, spans[0].start, spans[len(spans)-1].end)
-	if err != nil {
-		return nil, err
-	}
-	st := newSite(o)
-	return groupDays(ctx, spans, cs, func(sec float64) bool { return e.moonUp(o, st, sec) })
+	return crossingDays(ctx, "MoonDays", o, loc, first, last,
+		func(from, to time.Time) ([]Crossing, error) { return e.MoonRiseSet(o, from, to) },
+		func(st *site, sec float64) bool { return e.moonUp(o, st, sec) })
 }

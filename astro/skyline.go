@@ -352,26 +352,13 @@ func (e *MoonEphemeris) MoonSkylineDays(ctx context.Context, o Observer, sky Sky
 		o.Horizon = flat
 		return e.MoonDays(ctx, o, loc, first, last)
 	}
-	spans, err := localDays(ctx, "MoonSkylineDays", loc, first, last, 0)
-	if err != nil {
-		return nil, err
-	}
-	if err := o.Validate(); err != nil {
-		return nil, err
-	}
-	if len(spans) == 0 {
-		return nil, nil
-	}
-	cs, err := e.MoonSkylineRiseSet(o, sky, spans[0].start, spans[len(spans)-1].end)
-	if err != nil {
-		return nil, err
-	}
-	st := newSite(o)
-	return groupDays(ctx, spans, cs, func(sec float64) bool {
-		az := e.moon.azimuth(st, sec) * rad2deg
-		h0 := (o.threshold(sky.Altitude(az))+16.0/60)*deg2rad - e.moonSemidiameter(st, sec)
-		return e.moon.sinAltitude(st, sec) > math.Sin(h0)
-	})
+	return crossingDays(ctx, "MoonSkylineDays", o, loc, first, last,
+		func(from, to time.Time) ([]Crossing, error) { return e.MoonSkylineRiseSet(o, sky, from, to) },
+		func(st *site, sec float64) bool {
+			az := e.moon.azimuth(st, sec) * rad2deg
+			h0 := (o.threshold(sky.Altitude(az))+16.0/60)*deg2rad - e.moonSemidiameter(st, sec)
+			return e.moon.sinAltitude(st, sec) > math.Sin(h0)
+		})
 }
 
 // String writes a skyline as "[az, alt] …" for messages.

@@ -53,19 +53,30 @@ func (s *Server) serveAdhoc(w http.ResponseWriter, r *http.Request) {
 	}
 }
 
+// adhocSlot waits for one of the ad-hoc concurrency slots (errAdhocBusy
+// when ctx ends first) and returns ctx bounded by AdhocTimeout, with the
+// function that cancels it and frees the slot. Ad-hoc feeds and previews
+// share the slots.
+func (s *Server) adhocSlot(ctx context.Context) (context.Context, func(), error) {
+	select {
+	case s.adhocSem <- struct{}{}:
+	case <-ctx.Done():
+		return nil, nil, errAdhocBusy
+	}
+	ctx, cancel := context.WithTimeout(ctx, s.opts.AdhocTimeout)
+	return ctx, func() { cancel(); <-s.adhocSem }, nil
+}
+
 // buildAdhoc runs Options.Adhoc for q with ctx, the build's context: it
 // ends when every request waiting for this build has gone (timed out,
 // cancelled, disconnected) and after AdhocTimeout, and Adhoc passes it down
 // to the per-date loops, so abandoned work stops. The result is cached.
 func (s *Server) buildAdhoc(ctx context.Context, q AdhocQuery) (a *asset, err error) {
-	select {
-	case s.adhocSem <- struct{}{}:
-	case <-ctx.Done():
-		return nil, errAdhocBusy
+	ctx, release, err := s.adhocSlot(ctx)
+	if err != nil {
+		return nil, err
 	}
-	defer func() { <-s.adhocSem }()
-	ctx, cancel := context.WithTimeout(ctx, s.opts.AdhocTimeout)
-	defer cancel()
+	defer release()
 	defer func() {
 		if p := recover(); p != nil {
 			s.log.Error("ad-hoc build panicked", "panic", fmt.Sprint(p), "stack", string(debug.Stack()))

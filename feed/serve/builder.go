@@ -175,14 +175,11 @@ func (s *Server) previewQuery(r *http.Request, defaultDays, maxDays int) (AdhocQ
 
 // compute runs Preview within the ad-hoc concurrency limit and timeout.
 func (s *Server) compute(ctx context.Context, q AdhocQuery) (*feed.Calendar, error) {
-	select {
-	case s.adhocSem <- struct{}{}:
-	case <-ctx.Done():
-		return nil, errAdhocBusy
+	ctx, release, err := s.adhocSlot(ctx)
+	if err != nil {
+		return nil, err
 	}
-	defer func() { <-s.adhocSem }()
-	ctx, cancel := context.WithTimeout(ctx, s.opts.AdhocTimeout)
-	defer cancel()
+	defer release()
 	return s.opts.Preview(ctx, q)
 }
 

@@ -43,6 +43,49 @@ func TestSkylineFromCSV(t *testing.T) {
 	}
 }
 
+// TestSkylineFileRelativeToConfig: a relative skyline file name is read
+// from the configuration file's directory, whatever the working directory;
+// a missing one is a problem naming the field, the name and the path
+// looked for; from standard input (no file) the working directory is used.
+func TestSkylineFileRelativeToConfig(t *testing.T) {
+	dir := filepath.Join(t.TempDir(), "farm")
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		t.Fatal(err)
+	}
+	yaml := "sites:\n  - id: valley\n    latitude: 47\n    longitude: 11\n    timezone: Europe/Vienna\n    horizon: hills.csv\n" +
+		"feeds:\n  - id: v\n    site: valley\n    kinds: [sunrise]\n"
+	cfg := filepath.Join(dir, "heliocal.yaml")
+	if err := os.WriteFile(cfg, []byte(yaml), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	t.Chdir(t.TempDir()) // elsewhere: no hills.csv here
+	_, err := Load(cfg)
+	ps := problemsOf(t, err)
+	want := filepath.Join(dir, "hills.csv")
+	if len(ps) != 1 || ps[0].Path != "sites[0].horizon" || ps[0].Value != "hills.csv" || !strings.Contains(ps[0].Msg, want) ||
+		!strings.Contains(ps[0].Hint, "configuration file's directory") {
+		t.Fatalf("missing file: %+v", ps)
+	}
+	if err := os.WriteFile(want, []byte("azimuth,altitude\n90,8\n270,2\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	c, err := Load(cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s := c.Sites[0]; len(s.Skyline) != 2 || s.Skyline[0] != [2]float64{90, 8} || s.HorizonFile != want {
+		t.Errorf("skyline %v from %q", s.Skyline, s.HorizonFile)
+	}
+	// standard input has no directory: the working directory
+	if _, err := Parse(strings.NewReader(yaml), "yaml"); err == nil {
+		t.Error("hills.csv found in the working directory, where it is not")
+	}
+	t.Chdir(dir)
+	if _, err := Parse(strings.NewReader(yaml), "yaml"); err != nil {
+		t.Errorf("from standard input in the file's directory: %v", err)
+	}
+}
+
 // TestValidationErrors checks one file per problem: the error names the
 // field path and the offending value, and says what is wrong.
 func TestValidationErrors(t *testing.T) {

@@ -85,6 +85,11 @@ func Parse(r io.Reader, format string) (*Config, error) {
 // ParseEnv is Parse with environment overrides of the deployment settings
 // (see EnvNames) looked up through env.
 func ParseEnv(r io.Reader, format string, env LookupEnv) (*Config, error) {
+	return parseFrom(r, format, env, "")
+}
+
+// parseFrom is ParseEnv for a file in the directory dir (see parse).
+func parseFrom(r io.Reader, format string, env LookupEnv, dir string) (*Config, error) {
 	f := strings.ToLower(strings.TrimPrefix(format, "."))
 	switch f {
 	case "yml":
@@ -100,10 +105,13 @@ func ParseEnv(r io.Reader, format string, env LookupEnv) (*Config, error) {
 	if len(data) > maxFileBytes {
 		return nil, fmt.Errorf("%w: larger than %d bytes", ErrUnreadable, maxFileBytes)
 	}
-	return parse(data, f, env)
+	return parse(data, f, env, dir)
 }
 
-func parse(data []byte, format string, env LookupEnv) (c *Config, err error) {
+// parse reads a configuration; dir is the directory of the file it came
+// from, where a relative skyline file name is read from ("" for the
+// working directory: standard input, the demo).
+func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, err error) {
 	// Duplicate keys are problems of their own; the first of each is kept
 	// so that every other problem of the document is listed with them.
 	dups := duplicateKeys(data, format)
@@ -131,7 +139,7 @@ func parse(data []byte, format string, env LookupEnv) (c *Config, err error) {
 	}
 
 	for i := range c.Sites {
-		problems = append(problems, c.Sites[i].resolveHorizon(fmt.Sprintf("sites[%d].horizon", i))...)
+		problems = append(problems, c.Sites[i].resolveHorizon(fmt.Sprintf("sites[%d].horizon", i), dir)...)
 	}
 	fromEnv, envProblems := applyEnv(c, env)
 	problems = append(problems, envProblems...)
@@ -756,7 +764,7 @@ func LoadEnv(path string, env LookupEnv) (*Config, error) {
 	if st, err := f.Stat(); err == nil && st.IsDir() {
 		return nil, fmt.Errorf("%s: is a directory, not a configuration file", path)
 	}
-	c, err := ParseEnv(f, ext, env)
+	c, err := parseFrom(f, ext, env, filepath.Dir(path))
 	if err != nil {
 		var verr *ValidationError
 		if errors.As(err, &verr) {

@@ -5,7 +5,9 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"io/fs"
 	"os"
+	"path/filepath"
 	"sort"
 	"strconv"
 	"strings"
@@ -14,9 +16,10 @@ import (
 // resolveHorizon reads a site's horizon key: one altitude (a number), a
 // skyline as a list of [azimuth, altitude] points, or the name of a CSV
 // file of such points (one "azimuth,altitude" per line; a header line and
-// lines starting with # are skipped; a relative name is read from the
-// working directory). It sets Horizon or Skyline and returns the problems.
-func (s *Site) resolveHorizon(path string) []FieldError {
+// lines starting with # are skipped; a relative name is read from dir, the
+// configuration file's directory, or the working directory when dir is
+// empty). It sets Horizon or Skyline and returns the problems.
+func (s *Site) resolveHorizon(path, dir string) []FieldError {
 	switch v := s.HorizonValue.(type) {
 	case nil:
 		return nil
@@ -30,11 +33,19 @@ func (s *Site) resolveHorizon(path string) []FieldError {
 		s.Horizon = float64(v)
 		return nil
 	case string:
-		pts, err := readSkylineCSV(v)
-		if err != nil {
-			return []FieldError{{Path: path, Value: v, Msg: err.Error(), Hint: `a CSV file of "azimuth,altitude" lines, e.g. "90,8"`}}
+		name := v
+		if dir != "" && !filepath.IsAbs(name) {
+			name = filepath.Join(dir, name)
 		}
-		s.HorizonFile = v
+		pts, err := readSkylineCSV(name)
+		if err != nil {
+			hint := `a CSV file of "azimuth,altitude" lines, e.g. "90,8"`
+			if name != v {
+				hint = "a relative name is read from the configuration file's directory; " + hint
+			}
+			return []FieldError{{Path: path, Value: v, Msg: err.Error(), Hint: hint}}
+		}
+		s.HorizonFile = name
 		return s.setSkyline(path, pts)
 	case []any:
 		pts := make([][2]float64, 0, len(v))
@@ -108,9 +119,13 @@ func readSkylineCSV(name string) ([][2]float64, error) {
 	f, err := os.Open(name)
 	if err != nil {
 		if errors.Is(err, os.ErrNotExist) {
-			return nil, errors.New("no such skyline file")
+			return nil, fmt.Errorf("no such skyline file (looked for %s)", name)
 		}
-		return nil, fmt.Errorf("cannot read the skyline file: %v", err)
+		var pe *fs.PathError
+		if errors.As(err, &pe) {
+			err = pe.Err
+		}
+		return nil, fmt.Errorf("cannot read the skyline file %s: %v", name, err)
 	}
 	defer f.Close()
 	r := csv.NewReader(f)

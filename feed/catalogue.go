@@ -321,7 +321,7 @@ func (w *entryWriter) event(spec config.KindSpec, e Event) {
 	}
 	en.Alarm = w.alarm
 	en.Facts = Facts{Part: e.Part, Direction: e.Direction, Altitude: e.Altitude, Azimuth: e.Azimuth, Distance: e.Distance,
-		Illuminated: e.Illuminated, DayLength: e.DayLength, Lamp: e.Lamp, Short: e.Short}
+		Illuminated: e.Illuminated, DayLength: e.DayLength, DirectSun: e.DirectSun, Lamp: e.Lamp, Short: e.Short}
 	if spec.AllDay || e.Kind.Name == "photoperiod" {
 		d := localDate(en.Start, loc)
 		en.AllDay, en.Start, en.End, en.Date = true, d, d.AddDate(0, 0, 1), d
@@ -353,7 +353,7 @@ func (w *entryWriter) note(n Note) {
 		AllDay:      true,
 		Date:        n.Date,
 		Alarm:       w.alarm,
-		Facts:       Facts{Note: true, State: n.State, Until: n.Until, DayLength: n.DayLength},
+		Facts:       Facts{Note: true, State: n.State, Until: n.Until, DayLength: n.DayLength, DirectSun: n.DirectSun},
 	})
 }
 
@@ -373,7 +373,7 @@ func (w *entryWriter) summary(spec config.KindSpec, d time.Time, length, change 
 		AllDay:      true,
 		Date:        d,
 		Alarm:       w.alarm,
-		Facts:       Facts{DayLength: length, DayChange: change},
+		Facts:       Facts{DayLength: length, DayChange: change, DirectSun: len(w.site.Skyline) > 0},
 	})
 }
 

@@ -121,7 +121,7 @@ func (c *collector) lighting(k config.Kind) error {
 		}
 		short := k.DayLength - dl.length
 		add := func(part string, start, end time.Time) {
-			e := Event{Kind: k, Start: start, End: end, Date: d, Part: part, DayLength: dl.length}
+			e := Event{Kind: k, Start: start, End: end, Date: d, Part: part, DayLength: dl.length, DirectSun: alt == skylineKey}
 			c.clip(&e, spec)
 			if e.End.After(e.Start) {
 				e.Lamp = e.End.Sub(e.Start)

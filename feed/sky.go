@@ -38,7 +38,7 @@ type Event struct {
 	SeasonLength time.Duration // seasons: time until the next season starts
 	Azimuth      float64       // sunrise/sunset/moonrise/moonset: direction, degrees from north through east
 	Low, High    float64       // golden-hour, blue-hour, sun-band: the altitude bounds, degrees
-	DirectSun    bool          // sunrise/sunset: DayLength is the direct Sun over a skyline
+	DirectSun    bool          // DayLength is the direct Sun over a skyline (sunrise, sunset, daily summary, photoperiod, lighting)
 	Illuminated  float64       // Moon events: illuminated fraction 0..1
 	Waxing       bool          // Moon events: the Moon is waxing
 	Lamp         time.Duration // lighting: length of the lamp period
@@ -68,6 +68,8 @@ type Note struct {
 	DayLength   time.Duration
 	ExtremeDate time.Time
 	Last        time.Time
+	// DirectSun: DayLength is the direct Sun over the site's skyline.
+	DirectSun bool
 }
 
 // Place is where events are computed: an observer and the zone whose local
@@ -82,6 +84,10 @@ type Place struct {
 	// disappearance in each of its passages across the sky.
 	Skyline astro.Skyline
 }
+
+// direct reports whether the place's day lengths are hours of direct Sun
+// over a skyline per direction rather than sunrise to sunset.
+func (p Place) direct() bool { return len(p.Skyline) > 0 }
 
 // skylineKey stands for the skyline in the collector's thresholds (no real
 // altitude is this high).
@@ -944,7 +950,7 @@ func (c *collector) photoperiod(k config.Kind) error {
 		}
 		d := c.first.AddDate(0, 0, i-1)
 		c.events = append(c.events, Event{Kind: k, Start: midnight(d, c.p.Location), Date: d,
-			Direction: dir, DayLength: cur, DayChange: cur - prev})
+			Direction: dir, DayLength: cur, DayChange: cur - prev, DirectSun: c.p.direct()})
 		crossed = true
 	}
 	if !crossed {
@@ -957,7 +963,7 @@ func (c *collector) photoperiod(k config.Kind) error {
 // the photoperiod k: on the window's first date, with the longest day
 // length (when it stays below) or the shortest (when it stays above).
 func (c *collector) notReached(k config.Kind) Note {
-	n := Note{Kind: k, Date: c.first, State: astro.AlwaysBelow, Family: "never:" + k.String(), Last: c.last}
+	n := Note{Kind: k, Date: c.first, State: astro.AlwaysBelow, Family: "never:" + k.String(), Last: c.last, DirectSun: c.p.direct()}
 	above := c.lengths[1] >= k.DayLength
 	if above {
 		n.State = astro.AlwaysAbove
@@ -979,7 +985,7 @@ func (c *collector) summaryEvents(k config.Kind) error {
 	}
 	for i, d := 0, c.first; !d.After(c.last); i, d = i+1, d.AddDate(0, 0, 1) {
 		c.events = append(c.events, Event{Kind: k, Start: midnight(d, c.p.Location), Date: d,
-			DayLength: c.lengths[i+1], DayChange: c.lengths[i+1] - c.lengths[i]})
+			DayLength: c.lengths[i+1], DayChange: c.lengths[i+1] - c.lengths[i], DirectSun: c.p.direct()})
 	}
 	return nil
 }

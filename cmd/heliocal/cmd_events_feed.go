@@ -127,6 +127,7 @@ type jsonEntry struct {
 	Azimuth     *float64 `json:"azimuth_deg,omitempty"`
 	Distance    *float64 `json:"distance_au,omitempty"`
 	DayLength   *float64 `json:"day_length_s,omitempty"`
+	DirectSun   *float64 `json:"direct_sun_s,omitempty"` // in place of day_length_s over a skyline
 	DayChange   *float64 `json:"day_change_s,omitempty"`
 	Lit         *float64 `json:"illuminated,omitempty"`
 	Lamp        *float64 `json:"lamp_s,omitempty"`
@@ -190,6 +191,9 @@ func toJSONEntry(cal *feed.Calendar, e *feed.Entry) jsonEntry {
 		j.Distance = &d
 	}
 	j.DayLength, j.DayChange, j.Lamp = seconds(f.DayLength), seconds(f.DayChange), seconds(f.Lamp)
+	if f.DirectSun { // time above the skyline, not sunrise to sunset; 0 in a shaded valley
+		j.DirectSun, j.DayLength = roundTo(f.DayLength.Seconds(), 3), nil
+	}
 	if f.Illuminated != 0 {
 		j.Lit = roundTo(f.Illuminated, 4)
 	}
@@ -205,20 +209,22 @@ func writeEntriesJSON(w io.Writer, s *config.Site, from, to time.Time, cal *feed
 	for i := range cal.Entries {
 		out.Entries = append(out.Entries, toJSONEntry(cal, &cal.Entries[i]))
 	}
-	out.Site = jsonSite{Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation,
-		Horizon: s.Horizon, TimeZone: s.TimeZone.String(), From: from.Format(time.DateOnly), To: to.Format(time.DateOnly)}
+	out.Site = siteJSON(s, from, to)
 	enc := json.NewEncoder(w)
 	enc.SetIndent("", "  ")
 	return enc.Encode(out)
 }
 
+// entriesCSVHeader is the header row of a feed's entries as CSV: every
+// field of their JSON form (a test holds it complete), and the local times.
+var entriesCSVHeader = []string{"date", "kind", "title", "all_day", "start_utc", "end_utc", "start_local", "end_local",
+	"part", "direction", "note", "state", "until", "altitude_deg", "azimuth_deg", "distance_au", "day_length_s", "direct_sun_s", "day_change_s",
+	"illuminated", "lamp_s", "target_not_reached", "next_day", "missing_start", "alarm_s", "uid", "description"}
+
 func writeEntriesCSV(w io.Writer, cal *feed.Calendar) error {
 	loc := cal.Site.Location
 	cw := csv.NewWriter(w)
-	header := []string{"date", "kind", "title", "all_day", "start_utc", "end_utc", "start_local", "end_local",
-		"part", "direction", "note", "state", "until", "altitude_deg", "azimuth_deg", "distance_au", "day_length_s", "day_change_s",
-		"illuminated", "lamp_s", "target_not_reached", "next_day", "missing_start", "alarm_s", "uid", "description"}
-	_ = cw.Write(header)
+	_ = cw.Write(entriesCSVHeader)
 	for i := range cal.Entries {
 		e := &cal.Entries[i]
 		j := toJSONEntry(cal, e)
@@ -230,7 +236,7 @@ func writeEntriesCSV(w io.Writer, cal *feed.Calendar) error {
 			}
 		}
 		_ = cw.Write([]string{j.Date, j.Kind, j.Title, yes(j.AllDay), j.Start, j.End, startLocal, endLocal,
-			j.Part, j.Direction, yes(j.Note), j.State, j.Until, num(j.Altitude), num(j.Azimuth), num(j.Distance), num(j.DayLength),
+			j.Part, j.Direction, yes(j.Note), j.State, j.Until, num(j.Altitude), num(j.Azimuth), num(j.Distance), num(j.DayLength), num(j.DirectSun),
 			num(j.DayChange), num(j.Lit), num(j.Lamp), yes(j.Short), yes(j.NextDay), j.Missing, num(j.Alarm), j.UID, j.Description})
 	}
 	cw.Flush()

@@ -6,6 +6,7 @@ import (
 	"os"
 	"path/filepath"
 	"reflect"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -212,13 +213,24 @@ func TestEventsCSVLocalTimes(t *testing.T) {
 	}
 }
 
-// Every field of the JSON form of events and notes has its CSV column.
+// Every field of the JSON form of events and notes, and of a feed's
+// entries, has its CSV column.
 func TestEventsCSVHasEveryJSONField(t *testing.T) {
 	cols := map[string]bool{}
 	for _, c := range eventsCSVHeader {
 		cols[strings.TrimSuffix(c, "_utc")] = true
 	}
-	for _, typ := range []reflect.Type{reflect.TypeFor[jsonEvent](), reflect.TypeFor[jsonEclipse](), reflect.TypeFor[jsonNote]()} {
+	checkCSVColumns(t, cols, reflect.TypeFor[jsonEvent](), reflect.TypeFor[jsonEclipse](), reflect.TypeFor[jsonNote]())
+	cols = map[string]bool{}
+	for _, c := range entriesCSVHeader {
+		cols[strings.TrimSuffix(c, "_utc")] = true
+	}
+	checkCSVColumns(t, cols, reflect.TypeFor[jsonEntry]())
+}
+
+func checkCSVColumns(t *testing.T, cols map[string]bool, types ...reflect.Type) {
+	t.Helper()
+	for _, typ := range types {
 		for i := range typ.NumField() {
 			name, _, _ := strings.Cut(typ.Field(i).Tag.Get("json"), ",")
 			if name == "" || name == "-" {
@@ -227,6 +239,84 @@ func TestEventsCSVHasEveryJSONField(t *testing.T) {
 			if !cols[name] {
 				t.Errorf("JSON field %q of %s has no CSV column", name, typ.Name())
 			}
+		}
+	}
+}
+
+// Over a skyline, the hours of direct Sun are direct_sun_s (in place of
+// day_length_s) on sunrise, sunset and the daily summary alike, in the
+// events of the kinds and in a feed's entries, JSON and CSV, with the same
+// value for the same date.
+func TestDirectSunInEveryForm(t *testing.T) {
+	args := []string{"--from", "2027-01-10", "--to", "2027-01-10"}
+	code, out, errOut := runCLI(t, append([]string{"events", "--feed", "brackenfold-sun", "--format", "json"}, args...)...)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	var doc struct {
+		Entries []map[string]any `json:"entries"`
+		Events  []map[string]any `json:"events"`
+		Site    struct {
+			Skyline [][2]float64 `json:"skyline"`
+		} `json:"site"`
+	}
+	if err := json.Unmarshal([]byte(out), &doc); err != nil {
+		t.Fatal(err)
+	}
+	direct := map[string]float64{}
+	for _, e := range doc.Entries {
+		k := e["kind"].(string)
+		if k != "sunrise" && k != "sunset" && k != "daily-summary" {
+			continue
+		}
+		v, ok := e["direct_sun_s"].(float64)
+		if !ok || e["day_length_s"] != nil {
+			t.Errorf("feed entry %s: direct_sun_s %v, day_length_s %v", k, e["direct_sun_s"], e["day_length_s"])
+		}
+		direct[k] = v
+	}
+	if len(direct) != 3 || direct["sunrise"] != direct["daily-summary"] || direct["sunset"] != direct["sunrise"] {
+		t.Fatalf("direct Sun per kind in the feed: %v", direct)
+	}
+	if sk := doc.Site.Skyline; len(sk) != 8 || sk[3] != [2]float64{176, 25} { // config/demo.yaml
+		t.Errorf("site skyline %v", sk)
+	}
+	code, out, errOut = runCLI(t, append([]string{"events", "--site", "brackenfold", "--kinds", "sunrise,daily-summary", "--format", "json"}, args...)...)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	if err := json.Unmarshal([]byte(out), &doc); err != nil {
+		t.Fatal(err)
+	}
+	for _, e := range doc.Events {
+		if v, ok := e["direct_sun_s"].(float64); !ok || v != direct["sunrise"] || e["day_length_s"] != nil {
+			t.Errorf("event %s: direct_sun_s %v (feed %v), day_length_s %v", e["kind"], e["direct_sun_s"], direct["sunrise"], e["day_length_s"])
+		}
+	}
+	if len(doc.Events) != 2 {
+		t.Errorf("%d events, want sunrise and the summary", len(doc.Events))
+	}
+	for _, a := range [][]string{{"--feed", "brackenfold-sun"}, {"--site", "brackenfold", "--kinds", "sunrise,sunset,daily-summary"}} {
+		code, out, errOut = runCLI(t, append(append([]string{"events", "--format", "csv"}, a...), args...)...)
+		rows, err := csv.NewReader(strings.NewReader(out)).ReadAll()
+		if code != 0 || err != nil {
+			t.Fatalf("%v: exit %d, %v: %s", a, code, err, errOut)
+		}
+		col := map[string]int{}
+		for i, h := range rows[0] {
+			col[h] = i
+		}
+		n := 0
+		for _, r := range rows[1:] {
+			if k := r[col["kind"]]; k == "sunrise" || k == "sunset" || k == "daily-summary" {
+				n++
+				if v, _ := strconv.ParseFloat(r[col["direct_sun_s"]], 64); v != direct["sunrise"] || r[col["day_length_s"]] != "" {
+					t.Errorf("%v CSV %s: direct_sun_s %q day_length_s %q", a, k, r[col["direct_sun_s"]], r[col["day_length_s"]])
+				}
+			}
+		}
+		if n != 3 {
+			t.Errorf("%v CSV: %d rows of sunrise, sunset and the summary", a, n)
 		}
 	}
 }

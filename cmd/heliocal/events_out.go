@@ -116,7 +116,8 @@ func (j *jsonSink) flush() error {
 }
 
 // event appends one event object: the Sun's daily kinds (nearly all of a
-// long listing) written directly, any other kind through toJSONEvent and
+// long listing) written directly, any other kind (and a sunrise or sunset
+// over a skyline, with its direct_sun_s) through toJSONEvent and
 // encoding/json.
 func (j *jsonSink) event(e *feed.Event) {
 	b := j.buf
@@ -124,7 +125,7 @@ func (j *jsonSink) event(e *feed.Event) {
 		b = append(b, ',')
 	}
 	j.events++
-	if !plainJSONKinds[e.Kind.Name] {
+	if !plainJSONKinds[e.Kind.Name] || e.DirectSun {
 		obj, err := json.MarshalIndent(toJSONEvent(*e), "    ", "  ")
 		if err != nil { // plain strings and finite numbers: cannot fail
 			panic(err)
@@ -204,8 +205,7 @@ func (j *jsonSink) close() error {
 	}
 	j.buf = append(j.buf, "],\n  \"site\": "...)
 	s := j.site
-	site, err := json.MarshalIndent(jsonSite{Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation,
-		Horizon: s.Horizon, TimeZone: s.TimeZone.String(), From: j.from.Format(time.DateOnly), To: j.to.Format(time.DateOnly)}, "  ", "  ")
+	site, err := json.MarshalIndent(siteJSON(s, j.from, j.to), "  ", "  ")
 	if err != nil {
 		return err
 	}

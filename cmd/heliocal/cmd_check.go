@@ -187,7 +187,8 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 			}
 		}
 		if over {
-			r.Warnings = append(r.Warnings, fmt.Sprintf("feed %q is %s, over service.max_feed_bytes (%s): some web calendars drop events from subscriptions this large; shorten days_back/days_ahead or split the kinds into several feeds", f.ID, size(len(data)), size(limit)))
+			got, most := publish.FormatBytesOver(int64(len(data)), int64(limit))
+			r.Warnings = append(r.Warnings, fmt.Sprintf("feed %q is %s, over service.max_feed_bytes (%s): some web calendars drop events from subscriptions this large; shorten days_back/days_ahead or split the kinds into several feeds", f.ID, got, most))
 		}
 	}
 	return r, notes, nil

@@ -48,7 +48,8 @@ type OversizeError struct {
 }
 
 func (e *OversizeError) Error() string {
-	return fmt.Sprintf("%s, over service.max_feed_bytes (%s): shorten days_back/days_ahead, split the kinds, or set service.oversize: trim", FormatBytes(int64(e.Bytes)), FormatBytes(int64(e.Limit)))
+	size, limit := FormatBytesOver(int64(e.Bytes), int64(e.Limit))
+	return fmt.Sprintf("%s, over service.max_feed_bytes (%s): shorten days_back/days_ahead, split the kinds, or set service.oversize: trim", size, limit)
 }
 
 // trimToFit drops c's entries from the far end of its window, whole local

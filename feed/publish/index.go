@@ -82,6 +82,47 @@ func FormatBytes(n int64) string {
 	return strconv.FormatFloat(float64(n)/1e9, 'f', 1, 64) + " GB"
 }
 
+// FormatBytesOver writes a size n and the limit it is over in the same SI
+// unit, the limit exactly where three decimals can and the size with as
+// few decimals as tell them apart ("1.03 MB" over "1 MB", never "1.0 MB"
+// over "1.0 MB"); when even three decimals cannot, both are written in
+// bytes ("1,000,400 bytes" over "1,000,000 bytes").
+func FormatBytesOver(n, limit int64) (size, lim string) {
+	unit, div := "B", 1.0
+	switch {
+	case limit >= 1_000_000_000:
+		unit, div = "GB", 1e9
+	case limit >= 1_000_000:
+		unit, div = "MB", 1e6
+	case limit >= 1000:
+		unit, div = "kB", 1e3
+	}
+	if div == 1 {
+		return formatCount(int(n)) + " B", formatCount(int(limit)) + " B"
+	}
+	d := 0 // the decimals that write the limit exactly, if three do
+	for d < 3 && math.Mod(float64(limit), div/math.Pow10(d)) != 0 {
+		d++
+	}
+	for d = max(d, 1); d <= 3; d++ {
+		a := strconv.FormatFloat(float64(n)/div, 'f', d, 64)
+		b := strconv.FormatFloat(float64(limit)/div, 'f', d, 64)
+		if a != b {
+			return trimZeros(a) + " " + unit, trimZeros(b) + " " + unit
+		}
+	}
+	return formatCount(int(n)) + " bytes", formatCount(int(limit)) + " bytes"
+}
+
+// trimZeros drops the zeros ending the decimals of x, and the point if
+// nothing follows it: "1.000" is "1", "1.030" is "1.03".
+func trimZeros(x string) string {
+	if !strings.Contains(x, ".") {
+		return x
+	}
+	return strings.TrimSuffix(strings.TrimRight(x, "0"), ".")
+}
+
 // formatCoords writes "52.5200° N, 13.4050° E".
 func formatCoords(lat, lon float64) string {
 	ns, ew := "N", "E"

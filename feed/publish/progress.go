@@ -149,8 +149,9 @@ func Warnings(st Stats) []string {
 			t.Feed.File, t.To.Format("2006-01-02"), FormatBytes(int64(st.MaxFeedBytes)), FormatBytes(int64(t.Feed.Bytes)), t.Feed.Events))
 	}
 	for _, f := range st.Oversize {
+		size, limit := FormatBytesOver(int64(f.Bytes), int64(st.MaxFeedBytes))
 		out = append(out, fmt.Sprintf("warning: %s is %s, over the %s limit: some web calendars drop events from larger subscriptions; shorten its window or split it by kind",
-			f.File, FormatBytes(int64(f.Bytes)), FormatBytes(int64(st.MaxFeedBytes))))
+			f.File, size, limit))
 	}
 	return out
 }

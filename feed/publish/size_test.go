@@ -97,7 +97,7 @@ func TestOversize(t *testing.T) {
 	}
 	_, _, err = encodeFeed(t, cfg, f, &RenderOptions{MaxFeedBytes: 400000, Oversize: OversizeFail})
 	var oe *OversizeError
-	if !errors.As(err, &oe) || oe.Feed != "plot-sun" || oe.Bytes != len(whole) || !strings.Contains(err.Error(), "(400.0 kB)") {
+	if !errors.As(err, &oe) || oe.Feed != "plot-sun" || oe.Bytes != len(whole) || !strings.Contains(err.Error(), "(400 kB)") {
 		t.Fatalf("fail: %v", err)
 	}
 	cal, data, err := encodeFeed(t, cfg, f, &RenderOptions{MaxFeedBytes: 400000, Oversize: OversizeTrim})
@@ -113,5 +113,28 @@ func TestOversize(t *testing.T) {
 	}
 	if cal.Entries[0].Date.After(time.Date(2027, 1, 25, 0, 0, 0, 0, time.UTC)) {
 		t.Errorf("trim: the near end moved to %s", cal.Entries[0].Date.Format(time.DateOnly))
+	}
+}
+
+// A size and the limit it is over are written in one unit with the decimals
+// that tell them apart: never "1.0 MB" over "1.0 MB".
+func TestFormatBytesOver(t *testing.T) {
+	for _, c := range []struct {
+		n, limit       int64
+		size, limitStr string
+	}{
+		{1_029_056, 1_000_000, "1.03 MB", "1 MB"},
+		{2_500_000, 1_000_000, "2.5 MB", "1 MB"},
+		{1_004_000, 1_000_000, "1.004 MB", "1 MB"},
+		{1_000_400, 1_000_000, "1,000,400 bytes", "1,000,000 bytes"},
+		{24_300, 20_000, "24.3 kB", "20 kB"},
+		{1_500_000, 1_250_000, "1.5 MB", "1.25 MB"},
+		{1_300_000, 1_234_567, "1.3 MB", "1.235 MB"},
+		{900, 500, "900 B", "500 B"},
+	} {
+		size, limit := FormatBytesOver(c.n, c.limit)
+		if size != c.size || limit != c.limitStr {
+			t.Errorf("FormatBytesOver(%d, %d) = %q, %q; want %q, %q", c.n, c.limit, size, limit, c.size, c.limitStr)
+		}
 	}
 }

@@ -7,9 +7,10 @@ import (
 	"fmt"
 	"net/http"
 	"runtime/debug"
-	"strconv"
 	"sync"
 	"time"
+
+	"heliocal/feed/publish"
 )
 
 // serveAdhoc answers /at.ics: validate, look up the cache, else build once
@@ -237,16 +238,8 @@ func (g *flightGroup) do(ctx context.Context, key string, fn func(context.Contex
 // states the limit and how to stay under it.
 func tooLarge(q AdhocQuery, size, limit int) *QueryError {
 	days := max(1, q.Days*limit/size*9/10) // the size is nearly proportional to the days
-	return &QueryError{Msg: fmt.Sprintf("the feed asked for is %s bytes, over the limit of %s bytes per ad-hoc feed "+
+	got, most := publish.FormatBytesOver(int64(size), int64(limit))
+	return &QueryError{Msg: fmt.Sprintf("the feed asked for is %s, over the %s limit per ad-hoc feed "+
 		"(some calendar apps drop larger subscriptions); ask for fewer kinds or days (%s=%d should fit with these kinds)",
-		thousands(size), thousands(limit), ParamDays, days)}
-}
-
-// thousands writes n with commas between groups of three digits.
-func thousands(n int) string {
-	s := strconv.Itoa(n)
-	for i := len(s) - 3; i > 0; i -= 3 {
-		s = s[:i] + "," + s[i:]
-	}
-	return s
+		got, most, ParamDays, days)}
 }

@@ -5,6 +5,7 @@ import (
 	"errors"
 	"net/http"
 	"net/http/httptest"
+	"regexp"
 	"runtime"
 	"strings"
 	"sync"
@@ -484,7 +485,12 @@ func TestAdhocSizeCap(t *testing.T) {
 		if r.StatusCode != http.StatusBadRequest {
 			t.Fatalf("request %d: status %d, want 400", i, r.StatusCode)
 		}
-		for _, want := range []string{"over the limit of 20,000 bytes per ad-hoc feed", "fewer kinds or days", "days="} {
+		// Sizes in units people read, the limit named exactly.
+		sized := regexp.MustCompile(`is \d+(\.\d+)? kB, over the 20 kB limit per ad-hoc feed`)
+		if !sized.MatchString(msg) || strings.Contains(msg, "bytes") {
+			t.Errorf("message %q does not state the size and the 20 kB limit in kB", msg)
+		}
+		for _, want := range []string{"fewer kinds or days", "days="} {
 			if !strings.Contains(msg, want) {
 				t.Errorf("message %q does not say %q", msg, want)
 			}

@@ -273,17 +273,18 @@ func mergeRuns[T any](xs []T, bounds []int, out []T, key func(*T) int64) []T {
 }
 
 type collector struct {
-	ctx         context.Context // checked between kinds and in the per-date loops
-	sky         *Sky
-	p           Place
-	first, last time.Time
-	events      []Event
-	notes       []Note
-	lengths     []time.Duration // day lengths for first-1..last, computed once
-	starts      []time.Time     // local midnights beginning first-1..last+2, computed once
-	thresholds  map[float64]*threshold
-	maxLit      float64         // dark-window: the Moon's largest illuminated fraction still dark
-	spec        config.KindSpec // the options of the kind being added (lighting)
+	ctx          context.Context // checked between kinds and in the per-date loops
+	sky          *Sky
+	p            Place
+	first, last  time.Time
+	events       []Event
+	notes        []Note
+	lengths      []time.Duration // day lengths for first-1..last, computed once
+	lengthBefore time.Duration   // the day length of first-2, for a sunset on first
+	starts       []time.Time     // local midnights beginning first-1..last+2, computed once
+	thresholds   map[float64]*threshold
+	maxLit       float64         // dark-window: the Moon's largest illuminated fraction still dark
+	spec         config.KindSpec // the options of the kind being added (lighting)
 }
 
 func (c *collector) inRange(d time.Time) bool {
@@ -523,12 +524,16 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 		}
 	}
 	xs, up := th.xs, th.upFirst
+	var rose time.Time // the last sunrise before the crossing at hand
 	c.events = slices.Grow(c.events, len(xs))
 	starts := c.dayStarts()
 	for i, d := 0, c.first; !d.After(c.last); i, d = i+1, d.AddDate(0, 0, 1) {
 		start, end := starts[i+1], starts[i+2]
 		for len(xs) > 0 && xs[0].Time.Before(start) {
 			up = xs[0].Direction == astro.Rising
+			if up {
+				rose = xs[0].Time
+			}
 			xs = xs[1:]
 		}
 		crossed := false
@@ -544,12 +549,24 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 			x := xs[0]
 			xs = xs[1:]
 			up, crossed = x.Direction == astro.Rising, true
+			prevRise := rose
+			if up {
+				rose = x.Time
+			}
 			if dir != 0 && x.Direction != dir || keep >= 0 && j != keep {
 				continue
 			}
 			e := Event{Kind: k, Start: x.Time, Direction: x.Direction, Date: d}
 			if horizon {
 				e.DayLength, e.DayChange = c.lengths[i+1], c.lengths[i+1]-c.lengths[i]
+				if alt != skylineKey && !up && prevRise.Before(start) && x.Time.Sub(prevRise) < 24*time.Hour {
+					// a sunset after midnight ends the day of the date before
+					before := c.lengthBefore
+					if i > 0 {
+						before = c.lengths[i-1]
+					}
+					e.DayLength, e.DayChange = c.lengths[i], c.lengths[i]-before
+				}
 				e.DirectSun = alt == skylineKey
 				if e.Azimuth, err = c.sky.eph.SunAzimuth(c.p.Observer, x.Time); err != nil {
 					return err
@@ -654,15 +671,57 @@ func (c *collector) hidden(k config.Kind) error {
 	return nil
 }
 
-// dayLengths computes, once, the time the Sun's upper limb is above the
-// horizon on each local date first-1..last: the photoperiod.
+// dayLengths computes, once, the day length of each local date
+// first-1..last: the photoperiod. With a flat horizon it is the time from
+// the date's sunrise to the sunset that ends that day, even past midnight:
+// a daylight period shorter than a day counts in full on the date of its
+// sunrise (at 78° N in April the Sun rises at 02:14 and sets at 00:03 the
+// next day: a day of 21 h 48 min on the date of the sunrise, not 21 h 46 min
+// and 2 min more on the next date), and a longer one (the Sun up for days)
+// counts on each date for its own part. With a skyline it is the time the
+// Sun is over the skyline within the date.
 func (c *collector) dayLengths() error {
 	if c.lengths != nil {
 		return nil
 	}
-	l, err := c.above(c.p.riseAlt())
-	c.lengths = l
-	return err
+	alt := c.p.riseAlt()
+	l, err := c.aboveFrom(alt, 2)
+	if err != nil {
+		return err
+	}
+	if alt != skylineKey {
+		c.daylightPeriods(l)
+	}
+	c.lengthBefore, c.lengths = l[0], l[1:]
+	return nil
+}
+
+// daylightPeriods moves into l (the time above the horizon within each date
+// first-2..last) the part of each daylight period shorter than a day that
+// runs past the midnight ending the date of its sunrise, from the next date
+// to the date of the sunrise.
+func (c *collector) daylightPeriods(l []time.Duration) {
+	th := c.thresholds[c.p.riseAlt()]
+	first := c.first.AddDate(0, 0, -2)
+	for k := 0; k+1 < len(th.xs); k++ {
+		rise, set := th.xs[k], th.xs[k+1]
+		if rise.Direction != astro.Rising || set.Direction != astro.Setting || set.Time.Sub(rise.Time) >= 24*time.Hour {
+			continue
+		}
+		d := civil(rise.Time.In(c.p.Location))
+		end := midnight(d.AddDate(0, 0, 1), c.p.Location)
+		if !set.Time.After(end) {
+			continue
+		}
+		spill := set.Time.Sub(end)
+		i := int(d.Sub(first).Hours()/24 + 0.5) // the index of the sunrise's date in l
+		if i >= 0 && i < len(l) {
+			l[i] += spill
+		}
+		if i+1 >= 0 && i+1 < len(l) {
+			l[i+1] -= spill
+		}
+	}
 }
 
 // above returns, for each local date first-1..last, the time the Sun's
@@ -671,22 +730,27 @@ func (c *collector) dayLengths() error {
 // the Sun never drops below, 0 when it never gets there, and an interval that
 // runs past midnight counts on each date for its own part.
 func (c *collector) above(alt float64) ([]time.Duration, error) {
+	return c.aboveFrom(alt, 1)
+}
+
+// aboveFrom is above for the local dates first-back..last (back is 1 or 2).
+func (c *collector) aboveFrom(alt float64, back int) ([]time.Duration, error) {
 	th, err := c.threshold(alt)
 	if err != nil {
 		return nil, err
 	}
-	from := midnight(c.first.AddDate(0, 0, -1), c.p.Location)
+	from := midnight(c.first.AddDate(0, 0, -back), c.p.Location)
 	xs, up := th.xs, th.upFirst
 	for len(xs) > 0 && xs[0].Time.Before(from) {
 		up = xs[0].Direction == astro.Rising
 		xs = xs[1:]
 	}
-	n := int(c.last.Sub(c.first).Hours()/24+0.5) + 2
+	n := int(c.last.Sub(c.first).Hours()/24+0.5) + 1 + back
 	lengths := make([]time.Duration, n)
 	cur := from
 	starts := c.dayStarts()
 	for day := 0; day < n; {
-		dayEnd := starts[day+1]
+		dayEnd := starts[day-back+2]
 		next, crossing := dayEnd, len(xs) > 0 && xs[0].Time.Before(dayEnd)
 		if crossing {
 			next = xs[0].Time

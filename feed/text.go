@@ -3,6 +3,7 @@ package feed
 import (
 	"fmt"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 	"time"
@@ -635,9 +636,13 @@ func describeSummary(s *siteInfo, length, delta time.Duration, evs []Event, note
 		title = fmt.Sprintf("Direct Sun %s", hm(length))
 		lengthName = "Direct Sun over the skyline (sunrise and sunset are its first appearance and last disappearance)"
 	}
+	var said []string // dawn and dusk may give one note twice
 	for _, n := range notes {
 		t, _ := describeNote(s, n)
-		b.WriteString(t + ".\n")
+		if !slices.Contains(said, t) {
+			said = append(said, t)
+			b.WriteString(t + ".\n")
+		}
 	}
 	for _, e := range evs {
 		fmt.Fprintf(&b, "%s %s\n", plainNames[e.Kind.Name], ToMinute(e.Start).In(loc).Format("15:04 MST"))

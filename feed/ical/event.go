@@ -87,11 +87,24 @@ func (w *writer) setLines(cfg *ics.SerializationConfiguration) {
 	l.alarmTail = append(append(l.alarmTail, "END:VALARM"...), cfg.NewLine...)
 }
 
-// SerializeTo writes the event's content lines to out in one Write.
+// SerializeTo writes the event's content lines to out in one Write, or
+// appends them straight to the buffer when out is an Encoder's.
 func (ev *vevent) SerializeTo(out io.Writer, cfg *ics.SerializationConfiguration) error {
 	w := ev.w
 	w.setLines(cfg)
-	b := append(w.out[:0], w.lines.begin...)
+	if aw, ok := out.(*appendWriter); ok {
+		aw.b = ev.appendTo(aw.b)
+		return nil
+	}
+	w.out = ev.appendTo(w.out[:0])
+	_, err := out.Write(w.out)
+	return err
+}
+
+// appendTo appends the event's content lines, rendered for w.cfg, to b.
+func (ev *vevent) appendTo(b []byte) []byte {
+	w := ev.w
+	b = append(b, w.lines.begin...)
 	b = w.textLine(b, "UID:", ev.uid)
 	b = append(b, w.lines.stamp...)
 
@@ -163,10 +176,7 @@ func (ev *vevent) SerializeTo(out io.Writer, cfg *ics.SerializationConfiguration
 			b = append(b, w.lines.alarmTail...)
 		}
 	}
-	b = append(b, w.lines.end...)
-	w.out = b
-	_, err := out.Write(b)
-	return err
+	return append(b, w.lines.end...)
 }
 
 // size is an estimate of the event's serialized size (see writer.size).

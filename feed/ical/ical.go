@@ -51,7 +51,6 @@
 package ical
 
 import (
-	"bytes"
 	"encoding/binary"
 	"fmt"
 	"io"
@@ -100,17 +99,62 @@ const instantLength = time.Minute
 
 // Marshal returns c as an iCalendar file.
 func Marshal(c *feed.Calendar, opts Options) ([]byte, error) {
-	cal, size, err := build(c, opts)
+	return NewEncoder(opts).Append(nil, c)
+}
+
+// An Encoder writes calendars as iCalendar files one after another, with
+// the bytes of Marshal, and keeps its working memory (the events, the UID
+// set, the shared content lines) from one calendar to the next, so that a
+// publisher encoding many feeds into one reused buffer allocates little
+// beyond the first. An Encoder is for one goroutine at a time.
+type Encoder struct {
+	opts  Options
+	w     writer
+	seen  map[string]struct{}
+	comps []ics.Component
+}
+
+// NewEncoder returns an Encoder writing with opts.
+func NewEncoder(opts Options) *Encoder { return &Encoder{opts: opts} }
+
+// Append appends c's iCalendar file to dst and returns the extended buffer
+// (dst is grown once, to the estimated size, when it has too little room).
+// On error dst is returned unchanged, with nothing appended.
+func (e *Encoder) Append(dst []byte, c *feed.Calendar) ([]byte, error) {
+	cal, size, err := e.build(c)
 	if err != nil {
-		return nil, err
+		return dst, err
 	}
-	// make, unlike bytes.Buffer.Grow, does not clear memory fresh from the
-	// operating system (Grow always zeroes the whole new capacity).
-	b := bytes.NewBuffer(make([]byte, 0, size))
-	if err := cal.SerializeTo(b, ics.WithNewLineWindows); err != nil {
-		return nil, fmt.Errorf("ical: calendar %q: %w", c.ID, err)
+	if cap(dst)-len(dst) < size {
+		// make, unlike bytes.Buffer.Grow, does not clear memory fresh from
+		// the operating system (Grow always zeroes the whole new capacity).
+		grown := make([]byte, len(dst), len(dst)+size)
+		copy(grown, dst)
+		dst = grown
 	}
-	return b.Bytes(), nil
+	out := &appendWriter{b: dst}
+	err = cal.SerializeTo(out, ics.WithNewLineWindows)
+	e.release(cal)
+	if err != nil {
+		return dst, fmt.Errorf("ical: calendar %q: %w", c.ID, err)
+	}
+	return out.b, nil
+}
+
+// appendWriter is the io.Writer an Encoder serializes into: an append to
+// its buffer. The events recognise it and append their lines directly,
+// without a copy through Write.
+type appendWriter struct{ b []byte }
+
+func (a *appendWriter) Write(p []byte) (int, error) {
+	a.b = append(a.b, p...)
+	return len(p), nil
+}
+
+// release keeps cal's component array for the next calendar.
+func (e *Encoder) release(cal *ics.Calendar) {
+	clear(cal.Components)
+	e.comps = cal.Components[:0]
 }
 
 // Encode writes c to w as an iCalendar file. The whole file is rendered
@@ -170,6 +214,14 @@ type writer struct {
 	eventSize, alarmSize int
 }
 
+// reset readies w for calendar c, keeping the memory it allocated for the
+// previous one: the event array, the categories cache (a line depends on
+// the categories alone) and the scratch buffers.
+func (w *writer) reset(c *feed.Calendar) {
+	*w = writer{c: c, stamp: c.Stamp.UTC(), cats: w.cats, catKey: w.catKey[:0],
+		events: w.events[:0], out: w.out[:0], scratch: w.scratch[:0]}
+}
+
 // prepare computes the per-calendar values of w, once its inputs are checked.
 func (w *writer) prepare() {
 	w.stampValue = w.stamp.Format(utcLayout)
@@ -182,9 +234,15 @@ func (w *writer) prepare() {
 			w.tzidInLine = ";TZID=" + paramValue(w.tzid) + ":"
 		}
 	}
-	w.cats = make(map[string]*contentLine)
+	if w.cats == nil {
+		w.cats = make(map[string]*contentLine)
+	}
 	w.span = offsetSpan{from: 1, to: 0} // empty: the first lookup fills it
-	w.events = make([]vevent, len(w.c.Entries))
+	if n := len(w.c.Entries); cap(w.events) >= n {
+		w.events = w.events[:n]
+	} else {
+		w.events = make([]vevent, n)
+	}
 
 	// The fixed parts' sizes, from the lines as Marshal renders them;
 	// serialization renders them again for its own configuration.
@@ -199,11 +257,13 @@ func (w *writer) prepare() {
 
 // build returns the calendar of c and the size to reserve for its
 // serialization (see writer.size).
-func build(c *feed.Calendar, opts Options) (*ics.Calendar, int, error) {
+func (e *Encoder) build(c *feed.Calendar) (*ics.Calendar, int, error) {
 	if c == nil {
 		return nil, 0, fmt.Errorf("ical: nil calendar")
 	}
-	w := &writer{c: c, stamp: c.Stamp.UTC()}
+	opts := e.opts
+	w := &e.w
+	w.reset(c)
 	fail := func(format string, args ...any) error {
 		return fmt.Errorf("ical: calendar %q: "+format, append([]any{c.ID}, args...)...)
 	}
@@ -244,6 +304,7 @@ func build(c *feed.Calendar, opts Options) (*ics.Calendar, int, error) {
 	w.prepare()
 
 	cal := ics.NewCalendarFor("heliocal")
+	cal.Components = e.comps[:0]
 	cal.SetProductId(opts.ProductID())
 	cal.SetCalscale("GREGORIAN")
 	// No METHOD: a subscribed feed is not an iTIP message (RFC 5546), and
@@ -288,19 +349,26 @@ func build(c *feed.Calendar, opts Options) (*ics.Calendar, int, error) {
 	}
 
 	cal.Components = slices.Grow(cal.Components, len(c.Entries))
-	seen := make(map[string]bool, len(c.Entries))
+	if e.seen == nil {
+		e.seen = make(map[string]struct{}, len(c.Entries))
+	}
+	seen := e.seen
+	clear(seen)
 	for i := range c.Entries {
-		e := &c.Entries[i]
-		if e.UID == "" {
-			return nil, 0, fail("entry %d (%s %s): empty UID", i, e.Kind, e.Start.Format(time.RFC3339))
+		en := &c.Entries[i]
+		if en.UID == "" {
+			e.release(cal)
+			return nil, 0, fail("entry %d (%s %s): empty UID", i, en.Kind, en.Start.Format(time.RFC3339))
 		}
-		if seen[e.UID] {
-			return nil, 0, fail("entry %d: duplicate UID %q", i, e.UID)
+		if _, dup := seen[en.UID]; dup {
+			e.release(cal)
+			return nil, 0, fail("entry %d: duplicate UID %q", i, en.UID)
 		}
-		seen[e.UID] = true
-		ev, err := w.event(i, e)
+		seen[en.UID] = struct{}{}
+		ev, err := w.event(i, en)
 		if err != nil {
-			return nil, 0, fail("entry %q: %w", e.UID, err)
+			e.release(cal)
+			return nil, 0, fail("entry %q: %w", en.UID, err)
 		}
 		cal.Components = append(cal.Components, ev)
 	}

@@ -40,7 +40,7 @@ func referenceMarshal(t testing.TB, c *feed.Calendar, opts Options) ([]byte, err
 // referenceCalendar is the calendar referenceMarshal serializes.
 func referenceCalendar(t testing.TB, c *feed.Calendar, opts Options) (*ics.Calendar, error) {
 	t.Helper()
-	cal, _, err := build(c, opts)
+	cal, _, err := NewEncoder(opts).build(c)
 	if err != nil {
 		return nil, err
 	}
@@ -215,7 +215,7 @@ func TestEventsOtherConfigurations(t *testing.T) {
 	configs := [][]any{{}, {ics.WithNewLine("\n")}, {ics.WithLineLength(20)},
 		{ics.WithLineLength(40), ics.WithNewLineWindows}, {ics.WithLineLength(100), ics.WithNewLine("\r")}}
 	for i, c := range cals {
-		cal, _, err := build(c, Options{})
+		cal, _, err := NewEncoder(Options{}).build(c)
 		if err != nil {
 			continue
 		}

@@ -8,28 +8,41 @@ import (
 	"heliocal/feed/ical"
 )
 
-// encoder returns the calendar encoder of opts: opts.Encode, or feed/ical's
-// with the build's version in PRODID, applying opts.Oversize to a feed over
-// the size limit.
-func (o *RenderOptions) encoder() func(*feed.Calendar) ([]byte, error) {
-	enc := o.Encode
-	if enc == nil {
-		io := ical.Options{Version: o.Version}
-		enc = func(c *feed.Calendar) ([]byte, error) { return ical.Marshal(c, io) }
+// encodeFunc appends one calendar's iCalendar bytes to dst and returns the
+// extended buffer; on error dst's bytes are unchanged.
+type encodeFunc func(dst []byte, c *feed.Calendar) ([]byte, error)
+
+// encoder returns a calendar encoder of opts, for one goroutine: opts.Encode,
+// or a feed/ical Encoder with the build's version in PRODID, applying
+// opts.Oversize to a feed over the size limit.
+func (o *RenderOptions) encoder() encodeFunc {
+	var enc encodeFunc
+	if o.Encode != nil {
+		enc = func(dst []byte, c *feed.Calendar) ([]byte, error) {
+			data, err := o.Encode(c)
+			if err != nil {
+				return dst, err
+			}
+			return append(dst, data...), nil
+		}
+	} else {
+		e := ical.NewEncoder(ical.Options{Version: o.Version})
+		enc = e.Append
 	}
 	limit := o.maxFeedBytes()
 	if limit <= 0 || o.Oversize == "" || o.Oversize == OversizeWarn {
 		return enc
 	}
-	return func(c *feed.Calendar) ([]byte, error) {
-		data, err := enc(c)
-		if err != nil || len(data) <= limit {
+	return func(dst []byte, c *feed.Calendar) ([]byte, error) {
+		n := len(dst)
+		data, err := enc(dst, c)
+		if err != nil || len(data)-n <= limit {
 			return data, err
 		}
 		if o.Oversize == OversizeFail {
-			return nil, &OversizeError{Feed: c.ID, Bytes: len(data), Limit: limit}
+			return dst, &OversizeError{Feed: c.ID, Bytes: len(data) - n, Limit: limit}
 		}
-		return trimToFit(c, data, limit, enc)
+		return trimToFit(c, data, n, limit, enc)
 	}
 }
 
@@ -54,21 +67,22 @@ func (e *OversizeError) Error() string {
 
 // trimToFit drops c's entries from the far end of its window, whole local
 // dates at a time, until its encoding fits in limit bytes, and says in the
-// calendar's description how far it now reaches (c.TrimmedTo). data is c's
-// encoding before trimming.
-func trimToFit(c *feed.Calendar, data []byte, limit int, enc func(*feed.Calendar) ([]byte, error)) ([]byte, error) {
+// calendar's description how far it now reaches (c.TrimmedTo). buf[n:] is
+// c's encoding before trimming; each new encoding replaces it.
+func trimToFit(c *feed.Calendar, buf []byte, n, limit int, enc encodeFunc) ([]byte, error) {
+	data := buf[n:]
 	desc := c.Description
 	for len(data) > limit {
-		n := len(c.Entries)
-		if n == 0 {
-			return nil, &OversizeError{Feed: c.ID, Bytes: len(data), Limit: limit}
+		entries := len(c.Entries)
+		if entries == 0 {
+			return buf[:n], &OversizeError{Feed: c.ID, Bytes: len(data), Limit: limit}
 		}
 		// keep the share of entries that should fit (a little less: the
 		// header stays), at least one date fewer than now
-		keep := min(n-1, int(float64(n)*float64(limit)/float64(len(data))*0.98))
+		keep := min(entries-1, int(float64(entries)*float64(limit)/float64(len(data))*0.98))
 		last := c.Entries[max(keep, 0)].Date.AddDate(0, 0, -1)
-		if !last.Before(c.Entries[n-1].Date) {
-			last = c.Entries[n-1].Date.AddDate(0, 0, -1)
+		if !last.Before(c.Entries[entries-1].Date) {
+			last = c.Entries[entries-1].Date.AddDate(0, 0, -1)
 		}
 		kept := c.Entries[:0]
 		for _, e := range c.Entries {
@@ -89,9 +103,10 @@ func trimToFit(c *feed.Calendar, data []byte, limit int, enc func(*feed.Calendar
 			c.Description = desc + "\n\n" + note
 		}
 		var err error
-		if data, err = enc(c); err != nil {
-			return nil, err
+		if buf, err = enc(buf[:n], c); err != nil {
+			return buf[:n], err
 		}
+		data = buf[n:]
 	}
-	return data, nil
+	return buf, nil
 }

@@ -11,6 +11,7 @@ import (
 	"os/exec"
 	"strconv"
 	"strings"
+	"sync"
 	"testing"
 	"time"
 )
@@ -49,8 +50,11 @@ func (f stallingFile) Write(p []byte) (int, error) {
 // commit) and, at point at, reports it on stdout and hangs.
 func stoppingWriter(dir string, at int) (*Writer, *int) {
 	point := 0
+	var mu sync.Mutex // the workers create their temporary files concurrently
 	w := &Writer{Dir: dir}
 	w.step = func(what string) {
+		mu.Lock()
+		defer mu.Unlock()
 		point++
 		if point == at {
 			fmt.Printf("stopped at point %d: before %s\n", point, what)
@@ -63,6 +67,8 @@ func stoppingWriter(dir string, at int) (*Writer, *int) {
 		if err != nil {
 			return nil, err
 		}
+		mu.Lock()
+		defer mu.Unlock()
 		point++
 		if point == at {
 			return stallingFile{f, point}, nil

@@ -147,8 +147,11 @@ type rendered struct {
 	info      FeedInfo
 	trimmedTo time.Time // the window was shortened to this last date
 	site      feed.Site
+	src       Source
 	file      File
+	data      []byte // the encoder's buffer, file.Data on success
 	stamp     time.Time
+	staged    stagedFeed // what renderAll's work did with the bytes
 }
 
 // select returns the sources of the run's shard, checking ids.
@@ -190,8 +193,9 @@ func checksum(b []byte) string {
 	return hex.EncodeToString(h[:])
 }
 
-// renderOne builds and encodes one feed; the calendar is dropped on return.
-func renderOne(ctx context.Context, s Source, enc func(*feed.Calendar) ([]byte, error), base *url.URL) (rendered, error) {
+// renderOne builds and encodes one feed, appending its bytes to dst[:0]
+// (rendered.file.Data is that buffer); the calendar is dropped on return.
+func renderOne(ctx context.Context, s Source, enc encodeFunc, base *url.URL, dst []byte) (rendered, error) {
 	cal, err := s.Build(ctx)
 	if err != nil {
 		return rendered{}, fmt.Errorf("publish: feed %s: %w", s.ID, err)
@@ -202,9 +206,9 @@ func renderOne(ctx context.Context, s Source, enc func(*feed.Calendar) ([]byte, 
 	if cal.ID != s.ID {
 		return rendered{}, fmt.Errorf("publish: feed %s: calendar has id %q", s.ID, cal.ID)
 	}
-	data, err := enc(cal)
+	data, err := enc(dst[:0], cal)
 	if err != nil {
-		return rendered{}, fmt.Errorf("publish: feed %s: %w", s.ID, err)
+		return rendered{data: data}, fmt.Errorf("publish: feed %s: %w", s.ID, err)
 	}
 	name := s.ID + ".ics"
 	sum := checksum(data)
@@ -219,7 +223,9 @@ func renderOne(ctx context.Context, s Source, enc func(*feed.Calendar) ([]byte, 
 		},
 		trimmedTo: cal.TrimmedTo,
 		site:      cal.Site,
+		src:       s,
 		file:      File{Name: name, ContentType: ContentTypeICS, Data: data, Checksum: sum, ModTime: cal.Stamp.UTC()},
+		data:      data,
 		stamp:     cal.Stamp,
 	}, nil
 }
@@ -227,8 +233,13 @@ func renderOne(ctx context.Context, s Source, enc func(*feed.Calendar) ([]byte, 
 // renderAll renders srcs with a bounded pool of workers and hands each result
 // to emit in the order of srcs, from the calling goroutine. At most 2×workers
 // feeds are in flight (rendered but not yet emitted), which bounds memory.
-func renderAll(ctx context.Context, srcs []Source, opts *RenderOptions, emit func(rendered) error) error {
-	enc := opts.encoder()
+//
+// With work set, each worker calls it on its goroutine with each feed it has
+// rendered, before the feed goes to emit: there the feed's bytes are in the
+// worker's own buffer, reused for its next feed, so emit sees the feed
+// without its bytes (file.Data nil). Without work every feed gets a buffer
+// of its own, kept in file.Data.
+func renderAll(ctx context.Context, srcs []Source, opts *RenderOptions, work func(*rendered) error, emit func(rendered) error) error {
 	base, err := opts.base()
 	if err != nil {
 		return err
@@ -252,12 +263,21 @@ func renderAll(ctx context.Context, srcs []Source, opts *RenderOptions, emit fun
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
+			enc := opts.encoder()
+			var buf []byte
 			for i := range jobs {
 				if err := ctx.Err(); err != nil {
 					results[i] <- result{err: fmt.Errorf("publish: %w", err)}
 					continue
 				}
-				r, err := renderOne(ctx, srcs[i], enc, base)
+				r, err := renderOne(ctx, srcs[i], enc, base, buf)
+				if work != nil {
+					buf = r.data[:0]
+					if err == nil {
+						err = work(&r)
+					}
+					r.file.Data, r.data = nil, nil
+				}
 				results[i] <- result{r, err}
 			}
 		}()
@@ -378,7 +398,7 @@ func Render(ctx context.Context, srcs []Source, opts RenderOptions) (*Bundle, er
 	var l listing
 	var files []File
 	var stamps []time.Time
-	err = renderAll(ctx, sel, &opts, func(r rendered) error {
+	err = renderAll(ctx, sel, &opts, nil, func(r rendered) error {
 		l.add(r)
 		files = append(files, r.file)
 		stamps = append(stamps, r.stamp)

@@ -8,9 +8,8 @@ import (
 	"os"
 	"path/filepath"
 	"sort"
+	"sync"
 	"time"
-
-	"heliocal/feed"
 )
 
 // publishRun is one Publish call, in the order of its steps: start checks
@@ -23,13 +22,18 @@ type publishRun struct {
 	srcs   []Source // every feed of the configuration
 	sel    []Source // the run's shard of them
 	digest string   // configuration fingerprint, see runDigest
-	enc    func(*feed.Calendar) ([]byte, error)
+	enc    encodeFunc
 	base   *url.URL
 	start  time.Time
 	st     Stats
 	list   listing
 	stamps []time.Time
 	staged []stagedFeed
+
+	// temps are the temporary files the workers have written, emitted or
+	// not yet, so that a failed run removes every one it left.
+	mu    sync.Mutex
+	temps []string
 }
 
 // stagedFeed is one rendered feed waiting for the commit.
@@ -65,15 +69,23 @@ func startRun(srcs []Source, opts *RenderOptions, w *Writer) (*publishRun, error
 	return r, nil
 }
 
-// stage renders the shard's feeds on the worker pool; each changed feed goes
-// to a complete temporary file beside its final name, each unchanged one is
-// only remembered.
+// stage renders the shard's feeds on the worker pool; each worker writes
+// each changed feed it renders to a complete temporary file beside its final
+// name (each unchanged one is only remembered), so the disk's work overlaps
+// the computing and each worker reuses one buffer for all its feeds.
 func (r *publishRun) stage(ctx context.Context) error {
-	err := renderAll(ctx, r.sel, r.opts, func(rd rendered) error {
-		sf, err := r.w.stageFile(r.srcFor(rd.info.ID), rd.file)
-		if err != nil {
-			return err
+	work := func(rd *rendered) error {
+		sf, err := r.w.stageFile(rd.src, rd.file)
+		if sf.tmp != "" {
+			r.mu.Lock()
+			r.temps = append(r.temps, sf.tmp)
+			r.mu.Unlock()
 		}
+		rd.staged = sf
+		return err
+	}
+	err := renderAll(ctx, r.sel, r.opts, work, func(rd rendered) error {
+		sf := rd.staged
 		r.staged = append(r.staged, sf)
 		r.st.Events += rd.info.Events
 		r.st.Bytes += int64(rd.info.Bytes)
@@ -98,15 +110,6 @@ func (r *publishRun) stage(ctx context.Context) error {
 	}
 	r.list.finish(r.opts.Generated, r.stamps...)
 	return nil
-}
-
-func (r *publishRun) srcFor(id string) Source {
-	for _, s := range r.sel {
-		if s.ID == id {
-			return s
-		}
-	}
-	return Source{ID: id}
 }
 
 // stageFile writes f to a temporary file unless the directory already holds
@@ -176,7 +179,7 @@ func (r *publishRun) restage(ctx context.Context) error {
 		if err == nil && os.SameFile(sf.seen, now) && now.Size() == sf.seen.Size() && now.ModTime().Equal(sf.seen.ModTime()) {
 			continue
 		}
-		rd, err := renderOne(ctx, sf.src, r.enc, r.base)
+		rd, err := renderOne(ctx, sf.src, r.enc, r.base, nil)
 		if err != nil {
 			return err
 		}
@@ -274,6 +277,11 @@ func (r *publishRun) finish(err error) (Stats, error) {
 	p := r.opts.Progress
 	if err != nil {
 		removeStaged(r.staged)
+		r.mu.Lock()
+		for _, tmp := range r.temps {
+			os.Remove(tmp) // those renamed into place are gone already
+		}
+		r.mu.Unlock()
 		if p != nil {
 			p.Abort()
 		}

@@ -10,6 +10,7 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+	"sync/atomic"
 	"syscall"
 	"testing"
 	"time"
@@ -249,10 +250,9 @@ func TestFailedPublishKeepsPublishedFiles(t *testing.T) {
 				t.Fatal(err)
 			}
 
-			calls := 0
+			var calls atomic.Int32 // the workers create their files concurrently
 			w := &Writer{Dir: dir, createTemp: func(dir, pattern string) (tempFile, error) {
-				calls++
-				if calls == tc.failAt {
+				if int(calls.Add(1)) == tc.failAt {
 					return tc.inject(dir, pattern)
 				}
 				return os.CreateTemp(dir, pattern)

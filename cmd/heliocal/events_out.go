@@ -55,8 +55,39 @@ type jsonSink struct {
 	notes    []byte
 	held     []feed.Event
 	merged   []feed.Event
-	names    map[config.Kind]string // kind names, formatted once
+	kinds    []jsonKind // the kinds met so far, looked up in order
+	days     dayCache
 }
+
+// dayCache keeps the last day written as YYYY-MM-DD: consecutive events
+// mostly fall on the same UTC day.
+type dayCache struct {
+	day  int64 // days since 1970-01-01, +1 (0: empty)
+	text [10]byte
+}
+
+// appendDay appends the date of the day numbered days from 1970-01-01.
+func (c *dayCache) appendDay(b []byte, days int64) []byte {
+	if c.day != days+1 {
+		y, m, d := civilFromDays(days)
+		appendDate(c.text[:0], y, m, d)
+		c.day = days + 1
+	}
+	return append(b, c.text[:]...)
+}
+
+// jsonKind is what the writer knows of one kind: the start of its object,
+// formatted once, and how its fields are written.
+type jsonKind struct {
+	kind  config.Kind
+	head  string // `\n    {\n      "kind": "…"`
+	plain bool   // written by event itself (see plainJSONKinds)
+	noon  bool   // altitude_deg
+	rise  bool   // day_length_s and azimuth_deg
+}
+
+// jsonFlush is the size at which the writer hands its buffer on.
+const jsonFlush = 256 << 10
 
 func (j *jsonSink) chunk(c feed.Chunk) error {
 	if j.events == 0 && j.buf == nil {
@@ -75,7 +106,7 @@ func (j *jsonSink) chunk(c feed.Chunk) error {
 	}
 	for i := range evs[:cut] {
 		j.event(&evs[i])
-		if len(j.buf) >= 32<<10 {
+		if len(j.buf) >= jsonFlush {
 			if err := j.flush(); err != nil {
 				return err
 			}
@@ -125,7 +156,8 @@ func (j *jsonSink) event(e *feed.Event) {
 		b = append(b, ',')
 	}
 	j.events++
-	if !plainJSONKinds[e.Kind.Name] || e.DirectSun {
+	k := j.kind(e.Kind)
+	if !k.plain || e.DirectSun {
 		obj, err := json.MarshalIndent(toJSONEvent(*e), "    ", "  ")
 		if err != nil { // plain strings and finite numbers: cannot fail
 			panic(err)
@@ -134,48 +166,53 @@ func (j *jsonSink) event(e *feed.Event) {
 		j.buf = append(b, obj...)
 		return
 	}
-	b = append(b, "\n    {\n      \"kind\": "...)
-	name, ok := j.names[e.Kind]
-	if !ok {
-		if j.names == nil {
-			j.names = map[config.Kind]string{}
-		}
-		name = string(appendJSONString(nil, e.Kind.String()))
-		j.names[e.Kind] = name
-	}
-	b = append(b, name...)
+	b = append(b, k.head...)
 	b = append(b, ",\n      \"start\": \""...)
-	b = appendUTCMillis(b, feed.ToMillisecond(e.Start))
+	b = j.days.appendUTCMillis(b, e.Start)
 	b = append(b, '"')
 	if !e.End.IsZero() {
 		b = append(b, ",\n      \"end\": \""...)
-		b = appendUTCMillis(b, feed.ToMillisecond(e.End))
+		b = j.days.appendUTCMillis(b, e.End)
 		b = append(b, '"')
 	}
-	if d := direction(*e); d != "" {
-		b = append(b, ",\n      \"direction\": \""...)
-		b = append(b, d...)
-		b = append(b, '"')
+	switch e.Direction { // the plain kinds cross altitudes: rising or setting (feed.DirectionWord)
+	case astro.Rising:
+		b = append(b, ",\n      \"direction\": \"rising\""...)
+	case astro.Setting:
+		b = append(b, ",\n      \"direction\": \"setting\""...)
 	}
 	b = append(b, ",\n      \"date\": \""...)
-	y, m, d := e.Date.Date()
-	b = appendDate(b, y, int(m), d)
+	b = j.days.appendCivilDate(b, e.Date)
 	b = append(b, '"')
 	if e.Part != "" {
 		b = append(b, ",\n      \"part\": "...)
 		b = appendJSONString(b, e.Part)
 	}
-	switch e.Kind.Name {
-	case "solar-noon":
+	switch {
+	case k.noon:
 		b = append(b, ",\n      \"altitude_deg\": "...)
-		b = appendJSONFloat(b, math.Round(e.Altitude*1e4)/1e4)
-	case "sunrise", "sunset":
+		b = appendRounded(b, e.Altitude, 4)
+	case k.rise:
 		b = append(b, ",\n      \"day_length_s\": "...)
-		b = appendJSONFloat(b, math.Round(e.DayLength.Seconds()*1000)/1000)
+		b = appendRounded(b, e.DayLength.Seconds(), 3)
 		b = append(b, ",\n      \"azimuth_deg\": "...)
-		b = appendJSONFloat(b, math.Round(e.Azimuth*100)/100)
+		b = appendRounded(b, e.Azimuth, 2)
 	}
 	j.buf = append(b, "\n    }"...)
+}
+
+// kind returns what the writer knows of k, working it out the first time.
+func (j *jsonSink) kind(k config.Kind) *jsonKind {
+	for i := range j.kinds {
+		if j.kinds[i].kind == k {
+			return &j.kinds[i]
+		}
+	}
+	jk := jsonKind{kind: k, plain: plainJSONKinds[k.Name], noon: k.Name == "solar-noon",
+		rise: k.Name == "sunrise" || k.Name == "sunset"}
+	jk.head = string(appendJSONString([]byte("\n    {\n      \"kind\": "), k.String()))
+	j.kinds = append(j.kinds, jk)
+	return &j.kinds[len(j.kinds)-1]
 }
 
 // plainJSONKinds are the kinds whose JSON event.event writes itself, with
@@ -217,17 +254,58 @@ func (j *jsonSink) close() error {
 	return j.w.Flush()
 }
 
-// appendUTCMillis appends t in UTC as jsonTime writes it
-// (2027-01-01T06:42:12.854Z: further digits cut, so pass t rounded to the
-// millisecond as utcStamp does), for years 0–9999.
-func appendUTCMillis(b []byte, t time.Time) []byte {
-	t = t.UTC()
-	y, mo, d := t.Date()
-	h, mi, s := t.Clock()
-	b = appendDate(b, y, int(mo), d)
-	ms := t.Nanosecond() / 1e6
+// appendUTCMillis appends t rounded to the millisecond (feed.ToMillisecond)
+// in UTC as jsonTime writes it (2027-01-01T06:42:12.854Z), for years
+// 0–9999.
+func (c *dayCache) appendUTCMillis(b []byte, t time.Time) []byte {
+	sec, ms := t.Unix(), (t.Nanosecond()+500_000)/1_000_000 // half a millisecond rounds up, as time.Round
+	if ms == 1000 {
+		sec, ms = sec+1, 0
+	}
+	days, s := floorDiv(sec, 86400)
+	b = c.appendDay(b, days)
+	h, mi := s/3600, s/60%60
+	s %= 60
 	return append(b, 'T', byte('0'+h/10), byte('0'+h%10), ':', byte('0'+mi/10), byte('0'+mi%10), ':',
 		byte('0'+s/10), byte('0'+s%10), '.', byte('0'+ms/100), byte('0'+ms/10%10), byte('0'+ms%10), 'Z')
+}
+
+// appendCivilDate appends the UTC date of t as YYYY-MM-DD.
+func (c *dayCache) appendCivilDate(b []byte, t time.Time) []byte {
+	days, _ := floorDiv(t.Unix(), 86400)
+	return c.appendDay(b, days)
+}
+
+// floorDiv returns the quotient rounded down and the remainder (≥ 0).
+func floorDiv(a, n int64) (q int64, r int) {
+	q, m := a/n, a%n
+	if m < 0 {
+		q, m = q-1, m+n
+	}
+	return q, int(m)
+}
+
+// civilFromDays returns the proleptic Gregorian date of the day numbered
+// days from 1970-01-01 (the "days from civil" algorithm run backwards: H.
+// Hinnant, chrono-compatible low-level date algorithms; the same dates as
+// time.Time.Date).
+func civilFromDays(days int64) (y, m, d int) {
+	z := days + 719468
+	era, _ := floorDiv(z, 146097)
+	doe := z - era*146097                                  // [0, 146096]
+	yoe := (doe - doe/1460 + doe/36524 - doe/146096) / 365 // [0, 399]
+	doy := doe - (365*yoe + yoe/4 - yoe/100)               // [0, 365]
+	mp := (5*doy + 2) / 153                                // [0, 11], from March
+	d = int(doy - (153*mp+2)/5 + 1)
+	m = int(mp + 3)
+	if m > 12 {
+		m -= 12
+	}
+	y = int(yoe + era*400)
+	if m <= 2 {
+		y++
+	}
+	return y, m, d
 }
 
 // appendDate appends YYYY-MM-DD.
@@ -235,6 +313,40 @@ func appendDate(b []byte, y, m, d int) []byte {
 	return append(b, byte('0'+y/1000), byte('0'+y/100%10), byte('0'+y/10%10), byte('0'+y%10), '-',
 		byte('0'+m/10), byte('0'+m%10), '-', byte('0'+d/10), byte('0'+d%10))
 }
+
+// appendRounded appends x rounded to digits decimals (1–6), as
+// appendJSONFloat writes math.Round(x·10^digits)/10^digits: that number is
+// the double nearest to the decimal n·10^−digits, and with at most 15
+// significant digits no shorter decimal reads back as it, so the decimal is
+// written directly. Zero (which may be −0) and larger values go through
+// appendJSONFloat.
+func appendRounded(b []byte, x float64, digits int) []byte {
+	scale := pow10[digits]
+	n := math.Round(x * scale)
+	if n == 0 || !(math.Abs(n) < 1e15) {
+		return appendJSONFloat(b, n/scale)
+	}
+	i := int64(n)
+	if i < 0 {
+		b, i = append(b, '-'), -i
+	}
+	p := int64(scale)
+	b = strconv.AppendInt(b, i/p, 10)
+	f := i % p
+	if f == 0 {
+		return b
+	}
+	for f%10 == 0 {
+		f, digits = f/10, digits-1
+	}
+	var frac [6]byte // the fraction's digits, leading zeros included
+	for k := digits - 1; k >= 0; k-- {
+		frac[k], f = byte('0'+f%10), f/10
+	}
+	return append(append(b, '.'), frac[:digits]...)
+}
+
+var pow10 = [...]float64{1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6}
 
 // appendJSONString appends s quoted as encoding/json writes it: plain
 // printable ASCII directly, anything else through the encoder.

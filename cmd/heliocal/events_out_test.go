@@ -5,6 +5,8 @@ import (
 	"context"
 	"encoding/json"
 	"io"
+	"math"
+	"math/rand/v2"
 	"runtime"
 	"runtime/metrics"
 	"slices"
@@ -22,7 +24,7 @@ import (
 // windows) and far-future uncertainties.
 func TestEventsJSONStreamedAsEncoder(t *testing.T) {
 	args := []string{"events", "--lat", "69.65", "--lon", "18.96", "--tz", "Europe/Oslo", "--from", "2098-06-01",
-		"--to", "2099-09-30", "--kinds", "sunrise,sunset,civil-dusk,golden-hour,dark-window,moon-phases,seasons,perihelion,photoperiod:20h,lighting:16h",
+		"--to", "2099-09-30", "--kinds", "sunrise,sunset,solar-noon,sun-altitude:-4,civil-dusk,golden-hour,dark-window,moon-phases,seasons,perihelion,photoperiod:20h,lighting:16h",
 		"--max-illumination", "0.25", "--format", "json"}
 	code, out, errOut := runCLI(t, args...)
 	if code != 0 {
@@ -33,7 +35,7 @@ func TestEventsJSONStreamedAsEncoder(t *testing.T) {
 		t.Fatal(err)
 	}
 	from, to := time.Date(2098, 6, 1, 0, 0, 0, 0, time.UTC), time.Date(2099, 9, 30, 0, 0, 0, 0, time.UTC)
-	kinds, err := parseKinds("sunrise,sunset,civil-dusk,golden-hour,dark-window,moon-phases,seasons,perihelion,photoperiod:20h,lighting:16h")
+	kinds, err := parseKinds("sunrise,sunset,solar-noon,sun-altitude:-4,civil-dusk,golden-hour,dark-window,moon-phases,seasons,perihelion,photoperiod:20h,lighting:16h")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -159,5 +161,47 @@ func TestEventsCSVColumnsOnce(t *testing.T) {
 			t.Errorf("column %q twice", c)
 		}
 		seen[c] = true
+	}
+}
+
+// The JSON writer's own number and time formatting writes what
+// encoding/json and jsonTime write: rounded values of every size and sign,
+// and instants across centuries, leap days and half milliseconds.
+func TestEventsJSONFormatting(t *testing.T) {
+	r := rand.New(rand.NewPCG(12, 34))
+	for i := range 200_000 {
+		digits := 2 + i%3
+		x := (r.Float64() - 0.5) * math.Pow(10, float64(r.IntN(9)-3))
+		if i%7 == 0 {
+			x = float64(r.IntN(2001)-1000) / math.Pow(10, float64(digits)) // exact decimals, ±0 among them
+		}
+		v := math.Round(x*math.Pow(10, float64(digits))) / math.Pow(10, float64(digits))
+		want, _ := json.Marshal(v)
+		if got := appendRounded(nil, x, digits); string(got) != string(want) {
+			t.Fatalf("%v to %d decimals: %s, encoding/json %s", x, digits, got, want)
+		}
+	}
+	lo, hi := time.Date(1800, 1, 1, 0, 0, 0, 0, time.UTC).Unix(), time.Date(2201, 1, 1, 0, 0, 0, 0, time.UTC).Unix()
+	var cache dayCache
+	for i := range 200_000 {
+		sec, ns := lo+r.Int64N(hi-lo), r.Int64N(1e9)
+		if i%4 == 2 && cache.day != 0 {
+			sec = cache.day*86400 - 86400 + r.Int64N(86400) // the cached day
+		}
+		if i%5 == 0 {
+			ns = ns/1e6*1e6 + 499_999 + int64(i%3) // around half a millisecond
+		}
+		tm := time.Unix(sec, ns)
+		var c dayCache
+		if i%2 == 0 {
+			c = cache // the day written before, or another
+		}
+		if got, want := string(c.appendUTCMillis(nil, tm)), utcStamp(tm); got != want {
+			t.Fatalf("%v: %s, want %s", tm, got, want)
+		}
+		if got, want := string(c.appendCivilDate(nil, tm)), tm.UTC().Format(time.DateOnly); got != want {
+			t.Fatalf("%v: date %s, want %s", tm, got, want)
+		}
+		cache = c
 	}
 }

@@ -3,7 +3,9 @@ package feed
 import (
 	"context"
 	"fmt"
+	"runtime"
 	"slices"
+	"sync"
 	"time"
 
 	"heliocal/config"
@@ -26,13 +28,17 @@ const ChunkDays = 184
 
 // EventChunks computes the events of specs on the local dates first..last
 // chunk by chunk (ChunkDays dates each) and hands each chunk to fn in
-// order, so that memory stays that of one chunk whatever the span. The
+// order, so that memory stays that of a few chunks whatever the span. The
 // chunks hold the same events and notes as one EventsFor call over the whole
 // range (times within the searches' 1 ms). An event's Start is never before the local midnight that begins its
 // date, but a span named by its evening (a dark window) may start after the
 // next midnight; writers that order by Start across chunks hold back the
 // events of a chunk that start after it ends. The chunk's slices are
-// reused for the next chunk once fn returns.
+// reused for a later chunk once fn returns.
+//
+// The chunks are computed by up to GOMAXPROCS goroutines at once while fn
+// consumes them in order (fn itself is called from the calling goroutine,
+// one chunk at a time); at most one chunk more than the goroutines is held.
 func (s *Sky) EventChunks(ctx context.Context, p Place, specs []config.KindSpec, first, last time.Time, fn func(Chunk) error) error {
 	first, last = civil(first), civil(last)
 	if last.Before(first) {
@@ -50,25 +56,121 @@ func (s *Sky) EventChunks(ctx context.Context, p Place, specs []config.KindSpec,
 		}
 		whole = notes
 	}
-	buf := &buffers{}
+	var starts []time.Time
 	for d := first; !d.After(last); d = d.AddDate(0, 0, ChunkDays) {
+		starts = append(starts, d)
+	}
+	compute := func(ctx context.Context, i int, buf *buffers) (Chunk, error) {
+		d := starts[i]
 		end := d.AddDate(0, 0, ChunkDays-1)
 		if end.After(last) {
 			end = last
 		}
 		events, notes, err := s.eventsFor(ctx, p, specs, d, end, buf)
 		if err != nil {
-			return err
+			return Chunk{}, err
 		}
 		if chunked {
 			notes = slices.DeleteFunc(notes, func(n Note) bool { return n.Kind.Name == "photoperiod" })
-			if d.Equal(first) {
+			if i == 0 {
 				notes = append(whole, notes...)
 			}
 		}
-		if err := fn(Chunk{First: d, Last: end, Events: events, Notes: notes}); err != nil {
+		return Chunk{First: d, Last: end, Events: events, Notes: notes}, nil
+	}
+	workers := min(runtime.GOMAXPROCS(0), len(starts))
+	if workers <= 1 {
+		buf := &buffers{}
+		for i := range starts {
+			c, err := compute(ctx, i, buf)
+			if err != nil {
+				return err
+			}
+			if err := fn(c); err != nil {
+				return err
+			}
+		}
+		return nil
+	}
+	return inOrder(ctx, len(starts), workers, compute, fn)
+}
+
+// inOrder runs compute for 0..n−1 on up to workers goroutines and hands the
+// results to fn in order, on the calling goroutine. A chunk's buffers go
+// back to the pool once fn returns, so at most workers+1 chunks exist at
+// once. The first error (of compute, of fn, or ctx's) stops the rest; the
+// goroutines have ended when it returns.
+func inOrder(ctx context.Context, n, workers int, compute func(context.Context, int, *buffers) (Chunk, error), fn func(Chunk) error) error {
+	ctx, cancel := context.WithCancel(ctx)
+	var wg sync.WaitGroup
+	defer func() {
+		cancel()
+		wg.Wait()
+	}()
+	type result struct {
+		c   Chunk
+		buf *buffers
+		err error
+	}
+	pool := make(chan *buffers, workers+1)
+	for range workers + 1 {
+		pool <- &buffers{}
+	}
+	results := make([]chan result, n)
+	for i := range results {
+		results[i] = make(chan result, 1)
+	}
+	// Buffers are taken in the order of the chunks, so the next chunk fn
+	// waits for always has one.
+	type job struct {
+		i   int
+		buf *buffers
+	}
+	next := make(chan job)
+	wg.Add(1)
+	go func() {
+		defer wg.Done()
+		defer close(next)
+		for i := range n {
+			select {
+			case buf := <-pool:
+				select {
+				case next <- job{i, buf}:
+				case <-ctx.Done():
+					return
+				}
+			case <-ctx.Done():
+				return
+			}
+		}
+	}()
+	for range workers {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for j := range next {
+				c, err := compute(ctx, j.i, j.buf)
+				results[j.i] <- result{c: c, buf: j.buf, err: err}
+			}
+		}()
+	}
+	for i := range n {
+		if err := ctx.Err(); err != nil {
 			return err
 		}
+		var r result
+		select {
+		case r = <-results[i]:
+		case <-ctx.Done():
+			return ctx.Err()
+		}
+		if r.err != nil {
+			return r.err
+		}
+		if err := fn(r.c); err != nil {
+			return err
+		}
+		pool <- r.buf
 	}
 	return nil
 }

@@ -2,6 +2,8 @@ package feed
 
 import (
 	"context"
+	"errors"
+	"runtime"
 	"testing"
 	"time"
 
@@ -65,5 +67,56 @@ func TestEventChunksAsWhole(t *testing.T) {
 				t.Errorf("%s: note %d: %+v, whole range %+v", site.zone, i, g, w)
 			}
 		}
+	}
+}
+
+// The chunks reach fn in order of their dates, each with its own dates,
+// however many goroutines compute them; an error of fn or a cancelled
+// context stops the computation and is returned.
+func TestEventChunksOrderAndStop(t *testing.T) {
+	first, last := time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC), time.Date(2031, 12, 31, 0, 0, 0, 0, time.UTC)
+	sky, err := NewSky(first, last)
+	if err != nil {
+		t.Fatal(err)
+	}
+	k, err := config.ParseKind("sunrise")
+	if err != nil {
+		t.Fatal(err)
+	}
+	specs := []config.KindSpec{{Kind: k}}
+	p := Place{Observer: astro.Observer{Latitude: 47.3, Longitude: 8.5}, Location: time.UTC}
+	defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(4))
+	want := first
+	err = sky.EventChunks(context.Background(), p, specs, first, last, func(c Chunk) error {
+		if !c.First.Equal(want) || len(c.Events) == 0 || !c.Events[0].Date.Equal(c.First) || !c.Events[len(c.Events)-1].Date.Equal(c.Last) {
+			t.Fatalf("chunk %s..%s (events %d), want it to start on %s", c.First.Format(time.DateOnly), c.Last.Format(time.DateOnly), len(c.Events), want.Format(time.DateOnly))
+		}
+		want = c.Last.AddDate(0, 0, 1)
+		return nil
+	})
+	if err != nil || !want.Equal(last.AddDate(0, 0, 1)) {
+		t.Fatalf("ended at %s with %v", want.Format(time.DateOnly), err)
+	}
+	stop := errors.New("stop")
+	n := 0
+	err = sky.EventChunks(context.Background(), p, specs, first, last, func(Chunk) error {
+		if n++; n == 2 {
+			return stop
+		}
+		return nil
+	})
+	if err != stop || n != 2 {
+		t.Errorf("fn's error: got %v after %d chunks", err, n)
+	}
+	ctx, cancel := context.WithCancel(context.Background())
+	n = 0
+	err = sky.EventChunks(ctx, p, specs, first, last, func(Chunk) error {
+		if n++; n == 3 {
+			cancel()
+		}
+		return nil
+	})
+	if !errors.Is(err, context.Canceled) || n != 3 {
+		t.Errorf("cancelled: got %v after %d chunks", err, n)
 	}
 }

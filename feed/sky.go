@@ -325,19 +325,30 @@ var everyDate = map[string]bool{
 // transit 50 minutes later each day, a golden hour running on from the
 // evening before). Dates are never silent.
 func (c *collector) noteSilent(k config.Kind, n0, m0 int) {
-	has := make(map[time.Time]bool, len(c.events)-n0+len(c.notes)-m0)
-	for _, e := range c.events[n0:] {
-		has[e.Date] = true
+	first := c.first.Unix() / secondsPerDay
+	n := int(c.last.Unix()/secondsPerDay-first) + 1
+	has := make([]bool, n) // by date, from first
+	see := func(d time.Time) {
+		if i := d.Unix()/secondsPerDay - first; i >= 0 && i < int64(n) {
+			has[i] = true
+		}
 	}
-	for _, n := range c.notes[m0:] {
-		has[n.Date] = true
+	for i := range c.events[n0:] {
+		see(c.events[n0+i].Date)
 	}
-	for d := c.first; !d.After(c.last); d = d.AddDate(0, 0, 1) {
-		if !has[d] {
-			c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.Crosses, Family: "no-event:" + k.String()})
+	for i := range c.notes[m0:] {
+		see(c.notes[m0+i].Date)
+	}
+	for i, h := range has {
+		if !h {
+			c.notes = append(c.notes, Note{Kind: k, Date: c.first.AddDate(0, 0, i), State: astro.Crosses, Family: "no-event:" + k.String()})
 		}
 	}
 }
+
+// secondsPerDay is a civil date's length in UTC, where the collector's
+// dates (00:00 UTC) are one day apart.
+const secondsPerDay = 86400
 
 // compute adds the events and notes of one kind.
 func (c *collector) compute(k config.Kind) error {
@@ -527,7 +538,7 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 	var rose time.Time // the last sunrise before the crossing at hand
 	c.events = slices.Grow(c.events, len(xs))
 	starts := c.dayStarts()
-	for i, d := 0, c.first; !d.After(c.last); i, d = i+1, d.AddDate(0, 0, 1) {
+	for i, d := 0, c.first; !d.After(c.last); i, d = i+1, d.Add(24*time.Hour) { // UTC dates: a day is 24 h
 		start, end := starts[i+1], starts[i+2]
 		for len(xs) > 0 && xs[0].Time.Before(start) {
 			up = xs[0].Direction == astro.Rising

@@ -6,6 +6,7 @@ require (
 	github.com/arran4/golang-ical v0.3.4
 	github.com/emersion/go-ical v0.0.0-20250329121855-f41e73efc392
 	github.com/go-viper/mapstructure/v2 v2.4.0
+	github.com/klauspost/compress v1.20.1
 	github.com/pelletier/go-toml/v2 v2.2.4
 	github.com/prometheus/client_golang v1.25.0
 	github.com/ringsaturn/tzf v1.0.2

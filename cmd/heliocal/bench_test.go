@@ -3,10 +3,15 @@ package main
 import (
 	"bytes"
 	"context"
+	"fmt"
 	"io"
+	"log/slog"
+	"net/http"
+	"net/http/httptest"
 	"testing"
 	"time"
 
+	"heliocal/feed/publish"
 	"heliocal/feed/serve"
 )
 
@@ -85,6 +90,7 @@ func BenchmarkAdhocFeed(b *testing.B) {
 	}
 	b.ReportAllocs()
 	var size int
+	cpu0 := cpuTime()
 	for i := 0; b.Loop(); i++ {
 		q.Latitude = 40 + float64(i%1000)*0.01 // a new place each time
 		data, err := build(context.Background(), q)
@@ -93,5 +99,69 @@ func BenchmarkAdhocFeed(b *testing.B) {
 		}
 		size = len(data)
 	}
+	b.ReportMetric(float64(cpuTime()-cpu0)/1e6/float64(b.N), "cpu-ms/op")
 	b.ReportMetric(float64(size), "bytes/feed")
+}
+
+// BenchmarkAdhocRequest: all the server does for a request of an ad-hoc
+// one-year feed for a new place, as `heliocal serve` answers it: the
+// handler parses the query, misses the cache, builds the feed (catalogue
+// and encoding), hashes and compresses it, caches it and writes the gzip
+// response a calendar client asks for. cpu-ms/op is the process's CPU
+// time per request (garbage collection included), which a busy machine
+// disturbs less than the wall time.
+func BenchmarkAdhocRequest(b *testing.B) {
+	set := func() adhocSettings { return adhocSettings{layout: newLayout(""), refresh: 24 * time.Hour} }
+	srv, err := serve.New(serve.Options{
+		Logger:            slog.New(slog.DiscardHandler),
+		Build:             func(context.Context) (*publish.Bundle, error) { return &publish.Bundle{}, nil },
+		Adhoc:             adhocFeedFrom(set),
+		AdhocDefaultKinds: []string{"sunrise", "sunset", "civil-dawn", "civil-dusk"},
+	})
+	if err != nil {
+		b.Fatal(err)
+	}
+	h := srv.Handler()
+	get := func(i int) *discardResponse {
+		// a new place each time (the latitude's third decimal), as tools/loadtest asks
+		r := httptest.NewRequest("GET", fmt.Sprintf("/at.ics?lat=%.3f&lon=13.05&tz=Europe/Vienna&start=2027-01-01&days=365", 40+float64(i)*0.001), nil)
+		r.Header.Set("Accept-Encoding", "gzip")
+		w := &discardResponse{h: http.Header{}}
+		h.ServeHTTP(w, r)
+		if w.code != http.StatusOK || w.h.Get("Content-Encoding") != "gzip" {
+			b.Fatalf("status %d, Content-Encoding %q", w.code, w.h.Get("Content-Encoding"))
+		}
+		return w
+	}
+	get(-1) // the dates' shared ephemeris, built once for every place
+	b.ReportAllocs()
+	var size int64
+	cpu0 := cpuTime()
+	for i := 0; b.Loop(); i++ {
+		size = get(i).n
+	}
+	b.ReportMetric(float64(cpuTime()-cpu0)/1e6/float64(b.N), "cpu-ms/op")
+	b.ReportMetric(float64(size), "gzip-bytes/op")
+}
+
+// discardResponse is a ResponseWriter that keeps the status and headers
+// and counts the body's bytes.
+type discardResponse struct {
+	h    http.Header
+	code int
+	n    int64
+}
+
+func (w *discardResponse) Header() http.Header { return w.h }
+func (w *discardResponse) WriteHeader(c int) {
+	if w.code == 0 {
+		w.code = c
+	}
+}
+func (w *discardResponse) Write(p []byte) (int, error) {
+	if w.code == 0 {
+		w.code = http.StatusOK
+	}
+	w.n += int64(len(p))
+	return len(p), nil
 }

@@ -95,7 +95,7 @@ func (s *Server) buildAdhoc(ctx context.Context, q AdhocQuery) (a *asset, err er
 		s.refused.put(q.String(), &asset{data: []byte(qe.Error())})
 		return nil, qe
 	}
-	a = newAsset(q.ID()+".ics", "", data, start.Truncate(time.Second), nil)
+	a = newAdhocAsset(q.ID()+".ics", data, start.Truncate(time.Second))
 	a.cors = true
 	s.cache.put(q.String(), a)
 	return a, nil

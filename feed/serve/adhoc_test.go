@@ -1,8 +1,10 @@
 package serve
 
 import (
+	"compress/gzip"
 	"context"
 	"errors"
+	"io"
 	"net/http"
 	"net/http/httptest"
 	"regexp"
@@ -508,5 +510,39 @@ func TestAdhocSizeCap(t *testing.T) {
 	days = days[:strings.IndexFunc(days, func(r rune) bool { return r < '0' || r > '9' })]
 	if r := get(t, h, "GET", "/at.ics?lat=10&lon=10&tz=UTC&kinds=sunrise&days="+days); r.StatusCode != http.StatusOK {
 		t.Errorf("days=%s, suggested by the refusal: status %d", days, r.StatusCode)
+	}
+}
+
+// TestAdhocGzip: an ad-hoc feed, compressed at its own (fastest) level,
+// comes as gzip to a client that accepts it, with its own ETag, and
+// compress/gzip reads back exactly the bytes sent to a client that does
+// not (RFC 9110 §8.4.1.3, gzip coding).
+func TestAdhocGzip(t *testing.T) {
+	s := adhocServer(t, adhocICS)
+	h := s.Handler()
+	const target = "/at.ics?lat=47.5&lon=13.05&tz=Europe/Vienna&kinds=sunrise&days=365"
+	plainResp := get(t, h, "GET", target)
+	want := body(t, plainResp)
+	gz := get(t, h, "GET", target, "Accept-Encoding", "gzip")
+	if gz.StatusCode != 200 || gz.Header.Get("Content-Encoding") != "gzip" {
+		t.Fatalf("status %d, Content-Encoding %q, want 200 gzip", gz.StatusCode, gz.Header.Get("Content-Encoding"))
+	}
+	if e := gz.Header.Get("ETag"); e == plainResp.Header.Get("ETag") || !strings.HasSuffix(e, `-gz"`) {
+		t.Errorf("gzip ETag %q, identity ETag %q: want distinct, with -gz", e, plainResp.Header.Get("ETag"))
+	}
+	raw := body(t, gz)
+	zr, err := gzip.NewReader(strings.NewReader(raw))
+	if err != nil {
+		t.Fatal(err)
+	}
+	got, err := io.ReadAll(zr)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if string(got) != want || len(want) < 4*minGzip {
+		t.Errorf("gzip body decodes to %d bytes, want the %d bytes of the identity body", len(got), len(want))
+	}
+	if len(raw) >= len(want)/2 {
+		t.Errorf("gzip body %d bytes for %d: hardly compressed", len(raw), len(want))
 	}
 }

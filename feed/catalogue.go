@@ -8,6 +8,7 @@ import (
 	"slices"
 	"sort"
 	"strconv"
+	"strings"
 	"time"
 
 	"heliocal/astro"
@@ -180,8 +181,8 @@ func (sky *Sky) Entries(ctx context.Context, s *config.Site, feedID string, spec
 // may have computed some of the Sun's crossings already.
 func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []config.KindSpec) ([]Entry, error) {
 	last := col.last
-	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: map[string]int{}, noted: map[string]bool{}, last: civil(last)}
 	days := int(col.last.Sub(col.first).Hours()/24) + 1
+	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: make(map[string]int, days*len(specs)), noted: map[string]bool{}, last: civil(last)}
 	w.out = make([]Entry, 0, days*(len(specs)+1))
 	if err := col.prepare(altitudes(col.p.Observer, specs)...); err != nil {
 		return nil, err
@@ -208,16 +209,84 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 		for _, n := range col.notes[m0:] {
 			w.note(n)
 		}
+		w.flushText()
 		w.out = keep(w.out, from, spec)
 		// each kind's events are done with once they are entries
 		col.events, col.notes = col.events[:0], col.notes[:0]
 	}
+	w.flushText()
 	return w.out, nil
 }
 
-// sortEntries orders entries by Start, then UID. It sorts indices and moves
-// each entry once: entries are large, and swapping them dominated the sort.
-func sortEntries(es []Entry) []Entry { return sortEntries2(es, nil) }
+// sortEntries orders entries by Start, then UID, in place. The entries
+// come in a few runs already in that order (each kind's, date after date),
+// so it finds the runs and merges them as indices, then moves each entry
+// once: entries are large, and moving them dominated the sort.
+func sortEntries(es []Entry) []Entry {
+	cmp := func(i, j int32) int {
+		if c := es[i].Start.Compare(es[j].Start); c != 0 {
+			return c
+		}
+		return strings.Compare(es[i].UID, es[j].UID)
+	}
+	n := int32(len(es))
+	bounds := []int32{0}
+	for i := int32(1); i < n; i++ {
+		if cmp(i-1, i) > 0 {
+			bounds = append(bounds, i)
+		}
+	}
+	if len(bounds) == 1 {
+		return es // in order already
+	}
+	bounds = append(bounds, n)
+	idx, tmp := make([]int32, n), make([]int32, n)
+	for i := range idx {
+		idx[i] = int32(i)
+	}
+	// merge neighbouring runs until one is left
+	for len(bounds) > 2 {
+		next := make([]int32, 1, len(bounds)/2+2)
+		for r := 0; r+1 < len(bounds); r += 2 {
+			lo, mid := bounds[r], bounds[r+1]
+			if r+2 == len(bounds) { // an odd run out: copied as it is
+				copy(tmp[lo:], idx[lo:])
+				next = append(next, n)
+				break
+			}
+			hi := bounds[r+2]
+			i, j, k := lo, mid, lo
+			for ; i < mid && j < hi; k++ {
+				if cmp(idx[j], idx[i]) < 0 {
+					tmp[k], j = idx[j], j+1
+				} else {
+					tmp[k], i = idx[i], i+1
+				}
+			}
+			k += int32(copy(tmp[k:], idx[i:mid]))
+			copy(tmp[k:], idx[j:hi])
+			next = append(next, hi)
+		}
+		idx, tmp, bounds = tmp, idx, next
+	}
+	// es[i] takes the entry at idx[i]: follow each cycle of the permutation
+	for i := range idx {
+		if idx[i] == int32(i) {
+			continue
+		}
+		held, j := es[i], int32(i)
+		for {
+			k := idx[j]
+			idx[j] = j
+			if k == int32(i) {
+				es[j] = held
+				break
+			}
+			es[j], j = es[k], k
+		}
+	}
+	return es
+}
 
 // summaries adds one all-day entry per date: sunrise, sunset, day length and
 // civil twilight.
@@ -258,7 +327,20 @@ type entryWriter struct {
 	out    []Entry
 	last   time.Time      // the last local date of the feed
 	alarm  *time.Duration // the alarm of the kinds entry or plan being written, nil for the feed's
+
+	// text holds the descriptions and UIDs of the events written since
+	// the last flushText, and spans where each is: flushText makes them
+	// substrings of one string, instead of two strings per entry.
+	text  []byte
+	spans []textSpan
 }
+
+// textSpan locates the description (text[from:to]) and the UID
+// (text[uid:uid+uidLen]) of the entry out[entry].
+type textSpan struct{ entry, from, to, uid int }
+
+// uidLen is the length of a UID: 24 hex digits and "@heliocal".
+const uidLen = 24 + len("@heliocal")
 
 // uid derives a stable UID from the identity of an entry, never from its
 // computed time: a rebuild that moves an event by a second keeps its UID.
@@ -267,15 +349,38 @@ func (w *entryWriter) uid(parts ...string) string {
 	for _, p := range parts {
 		b = append(append(b, '|'), p...)
 	}
-	key := string(b)
-	n := w.seen[key]
-	w.seen[key] = n + 1
-	b = strconv.AppendInt(append(b, '|'), int64(n), 10)
-	sum := sha256.Sum256(b)
-	w.buf = b
-	out := make([]byte, 24, 24+len("@heliocal"))
-	hex.Encode(out, sum[:12])
-	return string(append(out, "@heliocal"...))
+	return string(w.appendUID(make([]byte, 0, uidLen), b))
+}
+
+// appendUID appends to dst the UID of the entry whose identity is key (the
+// feed id and the parts, each after a '|'): the first 12 bytes of the
+// SHA-256 of key and the number of entries with the same key before it, in
+// hex, and "@heliocal". key may be w.buf, which it reuses.
+func (w *entryWriter) appendUID(dst, key []byte) []byte {
+	n, ok := w.seen[string(key)]
+	if ok {
+		w.seen[string(key)] = n + 1
+	} else {
+		w.seen[string(key)] = 1
+	}
+	key = strconv.AppendInt(append(key, '|'), int64(n), 10)
+	sum := sha256.Sum256(key)
+	w.buf = key
+	return append(hex.AppendEncode(dst, sum[:12]), "@heliocal"...)
+}
+
+// flushText gives the entries written since the last call their
+// descriptions and UIDs (see text). It must run before the entries move.
+func (w *entryWriter) flushText() {
+	if len(w.spans) == 0 {
+		return
+	}
+	s := string(w.text)
+	for _, sp := range w.spans {
+		e := &w.out[sp.entry]
+		e.Description, e.UID = s[sp.from:sp.to], s[sp.uid:sp.uid+uidLen]
+	}
+	w.text, w.spans = w.text[:0], w.spans[:0]
 }
 
 // categories returns the CATEGORIES of a kind, built once per feed.
@@ -292,29 +397,37 @@ func (w *entryWriter) categories(k config.Kind) []string {
 	return c
 }
 
+// event writes the entry of an event of spec. Its description and UID go
+// to text (see flushText).
 func (w *entryWriter) event(spec config.KindSpec, e Event) {
 	offset := time.Duration(spec.Offset)
 	loc := w.site.TimeZone.Location
-	var title, desc string
+	var title string
+	from := len(w.text)
 	if e.Kind.Name == config.KindLighting {
+		var desc string
 		title, desc = describeLighting(w.site, e, spec)
+		w.text = append(w.text, desc...)
 	} else {
-		title, desc = describe(w.site, e)
+		w.text, title = appendDescription(w.text, w.site, e)
 	}
 	if offset != 0 {
+		// "<title>: <clock>.\n" before the event's own description
 		title = offsetTitle(offset, title)
-		desc = fmt.Sprintf("%s: %s.\n%s", title, localClock(e.Start.Add(offset), loc), desc)
+		desc := string(w.text[from:])
+		w.text = appendClock(append(append(w.text[:from], title...), ": "...), e.Start.Add(offset), loc)
+		w.text = append(append(w.text, ".\n"...), desc...)
 	}
 	if spec.Label != "" {
 		title = spec.Label
 	}
+	kind := e.Kind.String()
 	en := Entry{
-		Kind:        e.Kind.String(),
-		Title:       title,
-		Description: desc,
-		Categories:  w.categories(e.Kind),
-		Start:       e.Start.Add(offset),
-		Date:        e.Date,
+		Kind:       kind,
+		Title:      title,
+		Categories: w.categories(e.Kind),
+		Start:      e.Start.Add(offset),
+		Date:       e.Date,
 	}
 	if !e.End.IsZero() {
 		en.End = e.End.Add(offset)
@@ -326,7 +439,19 @@ func (w *entryWriter) event(spec config.KindSpec, e Event) {
 		d := localDate(en.Start, loc)
 		en.AllDay, en.Start, en.End, en.Date = true, d, d.AddDate(0, 0, 1), d
 	}
-	en.UID = w.uid(e.Kind.String(), offset.String(), e.Date.Format(time.DateOnly), e.Part, dirString(e.Direction))
+	// the UID of the parts kind, offset, date, part and direction
+	key := append(append(w.buf[:0], w.feedID...), '|')
+	key = append(append(key, kind...), '|')
+	if offset == 0 {
+		key = append(key, "0s"...)
+	} else {
+		key = append(key, offset.String()...)
+	}
+	key = append(appendDate(append(key, '|'), e.Date), '|')
+	key = append(append(append(key, e.Part...), '|'), dirString(e.Direction)...)
+	sp := textSpan{entry: len(w.out), from: from, to: len(w.text), uid: len(w.text)}
+	w.text = w.appendUID(w.text, key)
+	w.spans = append(w.spans, sp)
 	w.out = append(w.out, en)
 }
 

@@ -31,12 +31,26 @@ func dirString(d astro.Direction) string {
 // localClock formats an instant as site-local clock time with the zone
 // abbreviation, e.g. "06:47:12 CET".
 func localClock(t time.Time, loc *time.Location) string {
+	return string(appendClock(make([]byte, 0, 16), t, loc))
+}
+
+// appendClock appends localClock(t, loc) to b.
+func appendClock(b []byte, t time.Time, loc *time.Location) []byte {
 	lt := ToSecond(t).In(loc)
 	h, m, sec := lt.Clock()
 	zone, _ := lt.Zone()
-	b := make([]byte, 0, 9+len(zone))
 	b = append(b, byte('0'+h/10), byte('0'+h%10), ':', byte('0'+m/10), byte('0'+m%10), ':', byte('0'+sec/10), byte('0'+sec%10), ' ')
-	return string(append(b, zone...))
+	return append(b, zone...)
+}
+
+// appendDate appends the date of t as time.DateOnly writes it.
+func appendDate(b []byte, t time.Time) []byte {
+	y, m, d := t.Date()
+	if y < 0 || y > 9999 {
+		return t.AppendFormat(b, time.DateOnly)
+	}
+	return append(b, byte('0'+y/1000), byte('0'+y/100%10), byte('0'+y/10%10), byte('0'+y%10), '-',
+		byte('0'+m/10), byte('0'+m%10), '-', byte('0'+d/10), byte('0'+d%10))
 }
 
 // NightOf names the night that begins on the evening of the local date d
@@ -80,33 +94,44 @@ func twoDigits(n int) string {
 
 // hm formats a duration as "9 h 25 min", or "48 min" under an hour
 // (rounded to the minute).
-func hm(d time.Duration) string {
+func hm(d time.Duration) string { return string(appendHM(nil, d)) }
+
+// appendHM appends hm(d) to b.
+func appendHM(b []byte, d time.Duration) []byte {
 	d = d.Round(time.Minute)
 	h := int(d / time.Hour)
 	m := int((d % time.Hour) / time.Minute)
 	if h == 0 {
-		return strconv.Itoa(m) + " min"
+		return append(strconv.AppendInt(b, int64(m), 10), " min"...)
 	}
-	return strconv.Itoa(h) + " h " + twoDigits(m) + " min"
+	b = append(strconv.AppendInt(b, int64(h), 10), " h "...)
+	return append(append(b, byte('0'+m/10), byte('0'+m%10)), " min"...)
 }
 
 // Change formats a signed day-length change as "+1 min 30 s", "−2 min 05 s"
 // or "−32 s".
-func Change(d time.Duration) string {
-	sign := "+"
+func Change(d time.Duration) string { return string(appendChange(nil, d)) }
+
+// appendChange appends Change(d) to b.
+func appendChange(b []byte, d time.Duration) []byte {
 	if d < 0 {
-		sign, d = "−", -d
+		b, d = append(b, "−"...), -d
+	} else {
+		b = append(b, '+')
 	}
 	d = d.Round(time.Second)
 	m := int(d / time.Minute)
 	s := int((d % time.Minute) / time.Second)
 	switch {
 	case m == 0:
-		return sign + strconv.Itoa(s) + " s"
+		return append(strconv.AppendInt(b, int64(s), 10), " s"...)
 	case m >= 60: // the first day after polar night: "+1 h 42 min 55 s", not "+102 min"
-		return sign + strconv.Itoa(m/60) + " h " + twoDigits(m%60) + " min " + twoDigits(s) + " s"
+		b = append(strconv.AppendInt(b, int64(m/60), 10), " h "...)
+		b = append(append(b, byte('0'+m%60/10), byte('0'+m%60%10)), " min "...)
+	default:
+		b = append(strconv.AppendInt(b, int64(m), 10), " min "...)
 	}
-	return sign + strconv.Itoa(m) + " min " + twoDigits(s) + " s"
+	return append(append(b, byte('0'+s/10), byte('0'+s%10)), " s"...)
 }
 
 // days formats a long duration as "92 d 18 h".
@@ -275,36 +300,15 @@ func amount(d time.Duration) string {
 
 // describe gives the title and plain-language description of an event.
 func describe(s *siteInfo, e Event) (string, string) {
+	if b, title, ok := appendDaily(nil, s, e); ok {
+		return title, string(b)
+	}
 	loc := s.TimeZone.Location
 	at := localClock(e.Start, loc)
 	var b strings.Builder
 	b.Grow(320)
 	title := plainNames[e.Kind.Name]
 	switch e.Kind.Name {
-	case "sunrise", "sunset":
-		verb, refr := "disappears", s.refraction
-		if e.Kind.Name == "sunrise" {
-			verb = "appears"
-		}
-		if e.DirectSun {
-			verb, refr = "last disappears behind the site's skyline", s.refraction+" for the skyline's altitude"
-			if e.Kind.Name == "sunrise" {
-				verb = "first appears over the site's skyline"
-			}
-		}
-		b.WriteString(title + " at " + at + ": the Sun's upper limb " + verb + " at " + azimuthText(e) + " (" + refr + ").\n")
-		if e.DirectSun {
-			b.WriteString("Direct Sun over the skyline " + hm(e.DayLength) + " (" + Change(e.DayChange) + " from the day before).")
-		} else {
-			b.WriteString("Day length " + hm(e.DayLength) + " (" + Change(e.DayChange) + " from the day before).")
-		}
-		// the caution is in the calendar's description (CalendarCaution),
-		// not repeated every day
-	case "civil-dawn", "civil-dusk", "nautical-dawn", "nautical-dusk", "astronomical-dawn", "astronomical-dusk":
-		b.WriteString(title + " at " + at + ".\n" + twilightMeaning[e.Kind.Name])
-		if strings.HasPrefix(e.Kind.Name, "civil") {
-			b.WriteString("\n" + cautionLegal)
-		}
 	case "noon-clear":
 		if e.Direction == astro.Rising {
 			title = "The noon Sun clears the skyline again"
@@ -384,6 +388,58 @@ func describe(s *siteInfo, e Event) (string, string) {
 	return title, b.String()
 }
 
+// appendDescription appends the description of e to b and returns the
+// title: describe without its intermediate strings for the daily kinds
+// that make up most feeds (see appendDaily).
+func appendDescription(b []byte, s *siteInfo, e Event) ([]byte, string) {
+	if b, title, ok := appendDaily(b, s, e); ok {
+		return b, title
+	}
+	title, desc := describe(s, e)
+	return append(b, desc...), title
+}
+
+// appendDaily appends the description of a sunrise, a sunset or a dawn or
+// dusk of the three twilights to b, with its title; ok is false, and b
+// unchanged, for the other kinds.
+func appendDaily(b []byte, s *siteInfo, e Event) (_ []byte, title string, ok bool) {
+	switch e.Kind.Name {
+	case "sunrise", "sunset":
+		title = plainNames[e.Kind.Name]
+		verb, refr, more := "disappears", s.refraction, ""
+		if e.Kind.Name == "sunrise" {
+			verb = "appears"
+		}
+		if e.DirectSun {
+			verb, more = "last disappears behind the site's skyline", " for the skyline's altitude"
+			if e.Kind.Name == "sunrise" {
+				verb = "first appears over the site's skyline"
+			}
+		}
+		b = appendClock(append(append(b, title...), " at "...), e.Start, s.TimeZone.Location)
+		b = append(append(append(b, ": the Sun's upper limb "...), verb...), " at "...)
+		b = append(append(append(append(appendAzimuth(b, e), " ("...), refr...), more...), ").\n"...)
+		if e.DirectSun {
+			b = append(b, "Direct Sun over the skyline "...)
+		} else {
+			b = append(b, "Day length "...)
+		}
+		b = append(appendHM(b, e.DayLength), " ("...)
+		// the caution is in the calendar's description (CalendarCaution),
+		// not repeated every day
+		return append(appendChange(b, e.DayChange), " from the day before)."...), title, true
+	case "civil-dawn", "civil-dusk", "nautical-dawn", "nautical-dusk", "astronomical-dawn", "astronomical-dusk":
+		title = plainNames[e.Kind.Name]
+		b = appendClock(append(append(b, title...), " at "...), e.Start, s.TimeZone.Location)
+		b = append(append(b, ".\n"...), twilightMeaning[e.Kind.Name]...)
+		if strings.HasPrefix(e.Kind.Name, "civil") {
+			b = append(append(b, '\n'), cautionLegal...)
+		}
+		return b, title, true
+	}
+	return b, "", false
+}
+
 // Uncertain returns how uncertain the instant t is because the Earth's
 // rotation after the last observation (2023) is a forecast (astro's future
 // ΔT: 9 s per decade), rounded to the second, when that reaches half a
@@ -449,8 +505,12 @@ func bearing(e Event) string {
 
 // azimuthText is an event's azimuth in whole degrees with its compass
 // point, e.g. "125°, south-east".
-func azimuthText(e Event) string {
-	return fmt.Sprintf("%.0f°, %s", math.Round(e.Azimuth)-360*math.Floor(math.Round(e.Azimuth)/360), astro.CompassPoint(e.Azimuth))
+func azimuthText(e Event) string { return string(appendAzimuth(nil, e)) }
+
+// appendAzimuth appends azimuthText(e) to b.
+func appendAzimuth(b []byte, e Event) []byte {
+	b = strconv.AppendFloat(b, math.Round(e.Azimuth)-360*math.Floor(math.Round(e.Azimuth)/360), 'f', 0, 64)
+	return append(append(b, "°, "...), astro.CompassPoint(e.Azimuth)...)
 }
 
 var crossQuarterBetween = map[string]string{

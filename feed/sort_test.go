@@ -1,0 +1,62 @@
+package feed
+
+import (
+	"math/rand/v2"
+	"slices"
+	"strconv"
+	"strings"
+	"testing"
+	"time"
+)
+
+// TestSortEntries: the merge of runs puts entries in the order of a plain
+// sort by Start, then UID, whatever the runs: none, one, many, of one entry,
+// with equal starts, and random.
+func TestSortEntries(t *testing.T) {
+	r := rand.New(rand.NewPCG(1, 2))
+	t0 := time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC)
+	entry := func(minutes int, uid string) Entry {
+		return Entry{Start: t0.Add(time.Duration(minutes) * time.Minute), UID: uid, Title: uid}
+	}
+	var cases [][]Entry
+	cases = append(cases, nil, []Entry{entry(1, "a")})
+	for _, runs := range []int{1, 2, 3, 5, 8} { // kinds, each date after date
+		var es []Entry
+		for k := range runs {
+			for d := range 50 {
+				es = append(es, entry(d*1440+k*7%5, "k"+strconv.Itoa(k)+"d"+strconv.Itoa(d)))
+			}
+		}
+		cases = append(cases, es)
+	}
+	for range 20 {
+		es := make([]Entry, r.IntN(300))
+		for i := range es {
+			es[i] = entry(r.IntN(40), strconv.Itoa(r.IntN(1000))+"-"+strconv.Itoa(i))
+		}
+		cases = append(cases, es)
+	}
+	desc := make([]Entry, 100)
+	for i := range desc {
+		desc[i] = entry(100-i, strconv.Itoa(i))
+	}
+	cases = append(cases, desc)
+	for n, es := range cases {
+		want := slices.Clone(es)
+		slices.SortFunc(want, func(a, b Entry) int {
+			if c := a.Start.Compare(b.Start); c != 0 {
+				return c
+			}
+			return strings.Compare(a.UID, b.UID)
+		})
+		got := sortEntries(slices.Clone(es))
+		if len(got) != len(want) {
+			t.Fatalf("case %d: %d entries, want %d", n, len(got), len(want))
+		}
+		for i := range got {
+			if got[i].UID != want[i].UID || got[i].Title != want[i].Title || !got[i].Start.Equal(want[i].Start) {
+				t.Fatalf("case %d: entry %d is %s at %v, want %s at %v", n, i, got[i].UID, got[i].Start, want[i].UID, want[i].Start)
+			}
+		}
+	}
+}

@@ -6,12 +6,25 @@ import (
 )
 
 // Perihelion and aphelion of the Earth: the extrema of the distance between
-// the centres of the Earth and the Sun, from VSOP87D (whose Earth is the
-// Earth's centre, not the Earth–Moon barycentre; the Moon moves the instant
-// by up to a couple of days). The first estimate is Meeus, Astronomical
-// Algorithms 2nd ed., eq. 38.1 (for the barycentre); the extremum is then
-// located on the daily values of R within ±6 days and refined by Newton's
-// method on the numerical derivative of R to 0.1 s.
+// the centres of the Earth and the Sun (not the Earth–Moon barycentre; the
+// Moon moves the instant by up to a couple of days).
+//
+// Near an apsis the Earth's radial velocity changes by only a·e·n² ≈ 740
+// km/day per day, so an error of 0.26 km/day in that velocity moves the
+// instant by 30 s. Most of that velocity's short-period part is the Earth's monthly
+// swing about the Earth–Moon barycentre (≈ 4,700 km, ≈ 1,000 km/day), which
+// VSOP87D carries as a few dozen lunar terms of its own. Here the Earth is
+// instead the barycentre — VSOP87D without those terms (earthLunarL, B, R,
+// picked out by gen_vsop87.go) — minus μ times the geocentric Moon of
+// ELP/MPP02 (elpMoon), as vectors in the mean ecliptic of date, with
+// μ = 1/(1 + 81.30056), the Earth/Moon mass ratio of JPL DE405 (Standish
+// 1998, JPL IOM 312.F-98-048), to which ELP/MPP02 is fitted.
+// TestApsidesAgainstDE405 measures the result against DE405 itself.
+//
+// The first estimate is Meeus, Astronomical Algorithms 2nd ed., eq. 38.1
+// (for the barycentre); the extremum is then located on the daily values
+// within ±6 days and refined by Newton's method on the numerical
+// derivative to 0.1 s.
 
 // Perihelion returns the instant (UTC) of the Earth's perihelion in year
 // (early January) and the distance then, in au. It returns a *RangeError for
@@ -38,14 +51,14 @@ func apsis(year int, aphelion bool) (time.Time, float64, error) {
 	}
 	best, bestR := guess, math.Inf(1)
 	for d := -6.0; d <= 6; d++ {
-		if r := sign * earthRadius(guess+d); r < bestR {
+		if r := sign * earthSunDistance(guess+d); r < bestR {
 			best, bestR = guess+d, r
 		}
 	}
 	const h = 0.02 // days
 	x := best
 	for range 30 {
-		rm, r0, rp := earthRadius(x-h), earthRadius(x), earthRadius(x+h)
+		rm, r0, rp := earthSunDistance(x-h), earthSunDistance(x), earthSunDistance(x+h)
 		d1 := (rp - rm) / (2 * h)
 		d2 := (rp - 2*r0 + rm) / (h * h)
 		if d2 == 0 {
@@ -62,5 +75,28 @@ func apsis(year int, aphelion bool) (time.Time, float64, error) {
 			break
 		}
 	}
-	return timeFromUnix(ttToUnix(x)), earthRadius(x), nil
+	return timeFromUnix(ttToUnix(x)), earthSunDistance(x), nil
+}
+
+// earthMoonRatio is the Earth/Moon mass ratio of JPL DE405 (EMRAT).
+const earthMoonRatio = 81.30056
+
+// earthSunDistance returns the distance (au) between the centres of the
+// Earth and the Sun at jde (TT): the Earth–Moon barycentre from VSOP87D
+// without its lunar terms, less μ·(geocentric Moon from ELP/MPP02).
+func earthSunDistance(jde float64) float64 {
+	tau := (jde - J2000) / julianMillennium
+	l := evalVSOP(earthL[:], tau) - evalVSOP(earthLunarL[:], tau)
+	b := evalVSOP(earthB[:], tau) - evalVSOP(earthLunarB[:], tau)
+	r := evalVSOP(earthR[:], tau) - evalVSOP(earthLunarR[:], tau)
+	lon, lat, dist := elpMoon(jde)
+	m := dist / auKm / (1 + earthMoonRatio)
+	sl, cl := math.Sincos(l)
+	sb, cb := math.Sincos(b)
+	sλ, cλ := math.Sincos(lon)
+	sβ, cβ := math.Sincos(lat)
+	x := r*cb*cl - m*cβ*cλ
+	y := r*cb*sl - m*cβ*sλ
+	z := r*sb - m*sβ
+	return math.Sqrt(x*x + y*y + z*z)
 }

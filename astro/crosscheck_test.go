@@ -42,8 +42,11 @@ func TestSunAgainstERFA(t *testing.T) {
 // TestSeasonsAgainstERFA compares the instants of solar longitude 0°, 45°,
 // ..., 315° (equinoxes, solstices, cross-quarters) of 1900–2100 with ERFA,
 // in TT so that no ΔT model enters: within 2 s. Perihelion and aphelion
-// within 90 s (the distance curve is flat there: 1e-8 au moves the instant by
-// tens of seconds, and eraEpv00 is good to a few 1e-8 au).
+// within 45 s: the distance curve is flat there, so a radial velocity off by
+// 0.26 km/day moves the instant by about 30 s, and eraEpv00's own Earth is up
+// to 23 s (median 4.5 s) from JPL DE405's in 1960–2060 (apsides-de405.csv;
+// its documentation gives a velocity error of 1.4 mm/s rms, 5 mm/s max).
+// TestApsidesAgainstDE405 holds the apsides to 30 s of DE405 itself.
 func TestSeasonsAgainstERFA(t *testing.T) {
 	seasons := summary{name: "solar longitude instants vs ERFA (TT)"}
 	apsides := summary{name: "apsides vs ERFA (TT)"}
@@ -58,10 +61,10 @@ func TestSeasonsAgainstERFA(t *testing.T) {
 			got, err = SolarLongitudeTime(year, mustFloat(t, strings.TrimPrefix(r["kind"], "longitude_")))
 		case r["kind"] == "perihelion":
 			got, _, err = Perihelion(year)
-			tol, sum = 90, &apsides
+			tol, sum = 45, &apsides
 		case r["kind"] == "aphelion":
 			got, _, err = Aphelion(year)
-			tol, sum = 90, &apsides
+			tol, sum = 45, &apsides
 		default:
 			t.Fatalf("unknown kind %q", r["kind"])
 		}

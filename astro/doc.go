@@ -70,8 +70,9 @@
 //   - equinoxes, solstices and cross-quarters 1900–2100: within 1.2 s (TT)
 //     of ERFA; USNO's minute-rounded table 1905–2100 within 2 min (ΔT
 //     models differ after 2023);
-//   - perihelion and aphelion: within 1 min of ERFA (TT) and of Meeus's
-//     table;
+//   - perihelion and aphelion 1960–2060: within 27 s (TT, median 4.4 s) of
+//     JPL's DE405 ephemeris itself; within 34 s of ERFA (whose own Earth is
+//     up to 23 s off DE405 there) and within 46 s of Meeus's table (0.01 h);
 //   - sunrise, sunset, twilight, other thresholds, solar noon, 1973–2023:
 //     within 0.05 s of ERFA up to 66° of latitude, every event present
 //     from 89° S to 89° N; within the minute rounding of USNO's tables.

@@ -10,8 +10,9 @@ import "math"
 // 2nd ed., ch. 32. The tables (zz_vsop87_earth.go) are generated from the
 // complete series by gen_vsop87.go, which documents the truncation.
 //
-// VSOP87's Earth is the Earth's centre (not the Earth–Moon barycentre), which
-// is what perihelion and aphelion need.
+// VSOP87's Earth is the Earth's centre (not the Earth–Moon barycentre). Its
+// lunar terms (earthLunarL, B, R: the Earth about the barycentre) are also
+// listed apart, for the apsides (apsides.go).
 
 type vsopTerm struct{ a, b, c float64 }
 
@@ -37,9 +38,4 @@ func evalVSOP(series [][]vsopTerm, tau float64) float64 {
 func earthHeliocentric(jde float64) (L, B, R float64) {
 	tau := (jde - J2000) / julianMillennium
 	return norm2Pi(evalVSOP(earthL[:], tau)), evalVSOP(earthB[:], tau), evalVSOP(earthR[:], tau)
-}
-
-// earthRadius returns only the radius vector R (au) at jde.
-func earthRadius(jde float64) float64 {
-	return evalVSOP(earthR[:], (jde-J2000)/julianMillennium)
 }

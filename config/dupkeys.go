@@ -47,6 +47,12 @@ type dupFinder struct {
 	seen     map[string]keyPlace // by path with lower-case keys
 	dups     map[string]bool     // paths reported
 	problems []FieldError
+
+	// TOML: the lines [from, to) of each repeated key = value or table
+	// (1-based), and whether a duplicate lies within an inline table,
+	// which whole lines cannot remove
+	dropLines   [][2]int
+	inlineTable bool
 }
 
 // underDuplicate reports whether path or one of its ancestors is a
@@ -191,7 +197,9 @@ func (d *dupFinder) toml(data []byte) {
 			for it := v.Children(); it.Next(); {
 				kv := it.Node()
 				parent, k := resolve(path, kv.Key())
+				n := len(d.problems)
 				value(kv.Value(), key(parent, k))
+				d.inlineTable = d.inlineTable || len(d.problems) > n
 			}
 		case unstable.Array:
 			i := 0
@@ -201,12 +209,28 @@ func (d *dupFinder) toml(data []byte) {
 		}
 	}
 	current := ""
+	open := -1 // the index in dropLines of a repeated table still running
 	for p.NextExpression() {
 		e := p.Expression()
+		line := 0
+		if it := e.Key(); it.Next() {
+			line = p.Shape(it.Node().Raw).Start.Line
+		}
+		if n := len(d.dropLines); n > 0 && d.dropLines[n-1][1] == 0 && (n-1 != open || e.Kind != unstable.KeyValue) {
+			d.dropLines[n-1][1] = line // the repeated expression ends where the next begins
+			if n-1 == open {
+				open = -1
+			}
+		}
+		n := len(d.problems)
 		switch e.Kind {
 		case unstable.Table:
 			parent, k := resolve("", e.Key())
 			current = key(parent, k)
+			if len(d.problems) > n {
+				d.dropLines = append(d.dropLines, [2]int{line, 0})
+				open = len(d.dropLines) - 1
+			}
 		case unstable.ArrayTable:
 			parent, k := resolve("", e.Key())
 			path := strings.ToLower(string(k.Data))
@@ -217,17 +241,56 @@ func (d *dupFinder) toml(data []byte) {
 			current = index(path, tables[path]-1)
 		case unstable.KeyValue:
 			parent, k := resolve(current, e.Key())
-			value(e.Value(), key(parent, k))
+			kp := key(parent, k)
+			if len(d.problems) > n && open < 0 {
+				d.dropLines = append(d.dropLines, [2]int{line, 0})
+			}
+			value(e.Value(), kp)
 		}
 	}
+}
+
+// tomlWithoutDuplicates blanks the lines of each repeated key = value and
+// of each repeated table with its keys, keeping the first, so that the rest
+// of the document can be decoded; the lines keep their numbers. A document
+// with a duplicate inside an inline table is returned unchanged.
+func tomlWithoutDuplicates(data []byte) (out []byte) {
+	defer func() {
+		if recover() != nil {
+			out = data
+		}
+	}()
+	d := &dupFinder{seen: map[string]keyPlace{}, dups: map[string]bool{}}
+	d.toml(data)
+	if d.inlineTable || len(d.dropLines) == 0 {
+		return data
+	}
+	lines := bytes.SplitAfter(data, []byte("\n"))
+	for _, r := range d.dropLines {
+		to := r[1]
+		if to == 0 {
+			to = len(lines) + 1
+		}
+		for l := r[0]; l < to && l <= len(lines); l++ {
+			if l >= 1 && bytes.HasSuffix(lines[l-1], []byte("\n")) {
+				lines[l-1] = []byte("\n") // the line break keeps the numbering
+			} else if l >= 1 {
+				lines[l-1] = nil
+			}
+		}
+	}
+	return bytes.Join(lines, nil)
 }
 
 // withoutDuplicates rewrites a YAML or JSON document keeping only the first
 // of each set of keys that differ at most in case, so that the rest of the
 // document can still be decoded and checked once its duplicates are
-// reported. It returns the document to decode and its format; TOML, or a
-// document it cannot rewrite, is returned unchanged.
+// reported. It returns the document to decode and its format; a document
+// it cannot rewrite is returned unchanged.
 func withoutDuplicates(data []byte, format string) ([]byte, string) {
+	if format == "toml" {
+		return tomlWithoutDuplicates(data), format
+	}
 	if format != "yaml" && format != "json" {
 		return data, format
 	}

@@ -25,6 +25,10 @@ func TestDuplicateKeysRefused(t *testing.T) {
 			"sites[1].id", `line 3, column 5 ("id")`, `line 6, column 5 ("ID")`},
 		{"toml other case", "toml", "[[sites]]\nid = \"a\"\nlatitude = 47.5\nlongitude = 9.7\nLatitude = 10\n[[feeds]]\nid = \"f\"\nsite = \"a\"\nkinds = [\"sunrise\"]\n",
 			"sites[0].latitude", `line 3, column 1 ("latitude")`, `line 5, column 1 ("Latitude")`},
+		{"toml same key", "toml", "[[sites]]\nid = \"a\"\nlatitude = 47.5\nlongitude = 9.7\nlatitude = 10\n[[feeds]]\nid = \"f\"\nsite = \"a\"\nkinds = [\"sunrise\"]\n",
+			"sites[0].latitude", `line 3, column 1 ("latitude")`, `line 5, column 1 ("latitude")`},
+		{"toml same table", "toml", "[service]\nlisten = \":8080\"\n[service]\nout_dir = \"x\"\n[[sites]]\nid = \"a\"\nlatitude = 1\nlongitude = 2\n",
+			"service", `line 1, column 2 ("service")`, `line 3, column 2 ("service")`},
 		{"toml second table", "toml", "[[sites]]\nid = \"a\"\nlatitude = 1\nlongitude = 2\n[[sites]]\nid = \"b\"\nlatitude = 1\nLONGITUDE = 2\nlongitude = 3\n[[feeds]]\nid = \"f\"\nsite = \"a\"\nkinds = [\"sunrise\"]\n",
 			"sites[1].longitude", `line 8, column 1 ("LONGITUDE")`, `line 9, column 1 ("longitude")`},
 		{"toml table headers", "toml", "[service]\nlisten = \":8080\"\n[Service]\nout_dir = \"x\"\n[[sites]]\nid = \"a\"\nlatitude = 1\nlongitude = 2\n",
@@ -76,6 +80,10 @@ func TestDuplicateKeysListedWithOtherProblems(t *testing.T) {
 		{"yaml", "sites:\n  - id: a\n    latitude: 47.5\n    latitude: 10\n    longitude: 500\n    timezone: Mars/Base\nfeeds:\n  - id: f\n    site: nowhere\n    kinds: [sunrise]\n"},
 		{"json", `{"sites":[{"id":"a","latitude":47.5,"latitude":10,"longitude":500,"timezone":"Mars/Base"}],"feeds":[{"id":"f","site":"nowhere","kinds":["sunrise"]}]}`},
 		{"toml", "[[sites]]\nid = \"a\"\nlatitude = 47.5\nLatitude = 10\nlongitude = 500\ntimezone = \"Mars/Base\"\n[[feeds]]\nid = \"f\"\nsite = \"nowhere\"\nkinds = [\"sunrise\"]\n"},
+		// the same key exactly, which the TOML decoder itself refuses
+		{"toml", "[[sites]]\nid = \"a\"\nlatitude = 47.5\nlatitude = [\n  10,\n]\nlongitude = 500\ntimezone = \"Mars/Base\"\n[[feeds]]\nid = \"f\"\nsite = \"nowhere\"\nkinds = [\"sunrise\"]\n"},
+		// a table written twice: its second section is set aside with it
+		{"toml", "[service]\nlisten = \":8080\"\n[service]\nout_dir = \"x\"\nlisten = 5\n[[sites]]\nid = \"a\"\nlatitude = 47.5\nlatitude = 10\nlongitude = 500\ntimezone = \"Mars/Base\"\n[[feeds]]\nid = \"f\"\nsite = \"nowhere\"\nkinds = [\"sunrise\"]\n"},
 	} {
 		_, err := Parse(strings.NewReader(tc.doc), tc.format)
 		ps := problemsOf(t, err)

@@ -82,16 +82,20 @@ func build(cfg *config.Config, now time.Time, l layout) ([]publish.Source, publi
 	return srcs, opts, nil
 }
 
-// chartsFor draws, for each site, the year ahead: day length and twilight
-// bands, the year's events of the site's feeds as marks, and its
-// photoperiod thresholds as levels.
+// chartWeeksBefore is how far before today a site's chart starts, so that
+// today's line stands among the weeks around it rather than at the edge.
+const chartWeeksBefore = 4
+
+// chartsFor draws, for each site, the year ahead and the weeks before
+// today: day length and twilight bands, the events of the site's feeds as
+// marks, and its photoperiod thresholds as levels.
 func chartsFor(cfg *config.Config, now time.Time) func(context.Context, feed.Site) (*publish.SiteChart, error) {
 	// One ephemeris serves every site's chart: a site's local "today" is
 	// within a day of the UTC one, and the Sky keeps two days of margin.
 	sharedSky := sync.OnceValues(func() (*feed.Sky, error) {
 		u := now.UTC()
 		today := time.Date(u.Year(), u.Month(), u.Day(), 0, 0, 0, 0, time.UTC)
-		return feed.NewSky(today.AddDate(0, 0, -1), today.AddDate(1, 0, 1))
+		return feed.NewSky(today.AddDate(0, 0, -7*chartWeeksBefore-1), today.AddDate(1, 0, 1))
 	})
 	return func(ctx context.Context, fs feed.Site) (*publish.SiteChart, error) {
 		site, ok := cfg.Site(fs.ID)
@@ -99,8 +103,8 @@ func chartsFor(cfg *config.Config, now time.Time) func(context.Context, feed.Sit
 			return nil, fmt.Errorf("chart: no site %q", fs.ID)
 		}
 		t := now.In(site.TimeZone.Location)
-		first := time.Date(t.Year(), t.Month(), t.Day(), 0, 0, 0, 0, time.UTC)
-		last := first.AddDate(1, 0, -1)
+		today := time.Date(t.Year(), t.Month(), t.Day(), 0, 0, 0, 0, time.UTC)
+		first, last := today.AddDate(0, 0, -7*chartWeeksBefore), today.AddDate(1, 0, -1)
 		sky, err := sharedSky()
 		if err != nil {
 			return nil, err
@@ -110,7 +114,7 @@ func chartsFor(cfg *config.Config, now time.Time) func(context.Context, feed.Sit
 		if chart.Days, err = chartDays(sky, place, first, last); err != nil {
 			return nil, err
 		}
-		chart.Today = first
+		chart.Today = today
 		levels, marks, spanKinds := chartKinds(cfg, site.ID)
 		chart.Levels = levels
 		if chart.Marks, err = chartMarks(ctx, sky, place, marks, first, last); err != nil {

@@ -174,6 +174,7 @@ type phaseView struct {
 
 type todayView struct {
 	X, TX, TY, Date string
+	PastW           string // width of the shade over the dates before today
 }
 
 func num(v float64) string {
@@ -291,7 +292,11 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 		v.Summary += " " + t.Text + "."
 	}
 	if v.Today != nil {
-		v.Summary += " Today (" + v.Today.Date + ") is marked."
+		v.Summary += " Today (" + v.Today.Date + ") is marked"
+		if v.Today.PastW != "0" {
+			v.Summary += ", the weeks before it shaded"
+		}
+		v.Summary += "."
 	}
 	return v
 }
@@ -393,7 +398,7 @@ func markViews(marks []Mark, first, last time.Time) []markView {
 			anchor, left = "start", x
 		}
 		mv := markView{X: num(x), Y1: num(plotTop), Y2: num(plotBottom), Anchor: anchor, Label: m.Label,
-			Date: m.At.UTC().Format("2 Jan")}
+			Date: chartDate(m.At.UTC(), first, last)}
 		for r := range rowEnd {
 			if left > rowEnd[r]+6 {
 				rowEnd[r] = left + w
@@ -434,10 +439,10 @@ func thresholdViews(days []ChartDay, levels []Level) []thresholdView {
 		tv := thresholdView{X: num(x), TX: num(x + 2), TY: num(plotBottom - 4 - 12*float64(n%2))}
 		if c.up {
 			tv.Label = label + " ↑"
-			tv.Text = fmt.Sprintf("Day length reaches %s on %s", label, days[c.i].Date.Format("2 Jan"))
+			tv.Text = fmt.Sprintf("Day length reaches %s on %s", label, chartDate(days[c.i].Date, days[0].Date, days[len(days)-1].Date))
 		} else {
 			tv.Label = label + " ↓"
-			tv.Text = fmt.Sprintf("Day length drops under %s on %s", label, days[c.i].Date.Format("2 Jan"))
+			tv.Text = fmt.Sprintf("Day length drops under %s on %s", label, chartDate(days[c.i].Date, days[0].Date, days[len(days)-1].Date))
 		}
 		if c.lv.Label != "" {
 			tv.Text += " (" + c.lv.Label + ")"
@@ -458,9 +463,19 @@ func phaseViews(phases []Phase, first, last time.Time) []phaseView {
 			continue
 		}
 		x := plotLeft + float64(plotW)*off.Hours()/span.Hours()
-		views = append(views, phaseView{X: num(x), Y: num(phaseY), Full: p.Full, Date: p.At.UTC().Format("2 Jan")})
+		views = append(views, phaseView{X: num(x), Y: num(phaseY), Full: p.Full, Date: chartDate(p.At.UTC(), first, last)})
 	}
 	return views
+}
+
+// chartDate writes a date of the chart as "7 Nov", with the year ("7 Nov
+// 2026") when the same day of another year is also in the chart, first..last
+// (a chart of more than a year).
+func chartDate(t, first, last time.Time) string {
+	if !t.AddDate(1, 0, 0).After(last) || !t.AddDate(-1, 0, 0).Before(first) {
+		return t.Format("2 Jan 2006")
+	}
+	return t.Format("2 Jan")
 }
 
 // todayMark is the line at today's date, nil when it is not in the chart.
@@ -473,7 +488,8 @@ func todayMark(today time.Time, days []ChartDay) *todayView {
 		return nil
 	}
 	x := plotLeft + (float64(i)+0.5)*dayStep(len(days))
-	return &todayView{X: num(x), TX: num(x + 3), TY: num(plotBottom + 26), Date: days[i].Date.Format("2 Jan 2006")}
+	return &todayView{X: num(x), TX: num(x + 3), TY: num(plotBottom + 26), Date: days[i].Date.Format("2 Jan 2006"),
+		PastW: num(float64(i) * dayStep(len(days)))}
 }
 
 // formatHours writes a day length as "12 h" or "14 h 30 min".

@@ -282,7 +282,7 @@ svg .yl{text-anchor:end}
 .thr{stroke:#2e8b3e;stroke-width:1;stroke-dasharray:3 2}
 svg .tl{fill:#2e8b3e}
 .mark{stroke:#c0392b;stroke-width:1}
-.today{stroke:currentColor;stroke-width:1.5}
+.today{stroke:currentColor;stroke-width:1.5}.past{fill:currentColor;fill-opacity:.08;stroke:none}
 .moon{stroke:currentColor;stroke-width:1;fill:none}
 .moon.full{fill:#e8c547}
 .key{display:inline-block;width:1.4em;height:0;vertical-align:.3em;margin:0 .25em 0 .6em;border-top:3px solid}
@@ -309,7 +309,8 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{
 <title id="{{.ID}}-t">{{.Title}}</title>
 <desc id="{{.ID}}-d">{{.Summary}}</desc>
 <rect class="plot" x="44" y="44" width="700" height="240"/>
-{{with .Dark}}<path class="dark" stroke-width="{{$step}}" d="{{.}}"><title>dark windows</title></path>
+{{with .Today}}{{if ne .PastW "0"}}<rect class="past" x="44" y="44" width="{{.PastW}}" height="240"><title>before today</title></rect>
+{{end}}{{end}}{{with .Dark}}<path class="dark" stroke-width="{{$step}}" d="{{.}}"><title>dark windows</title></path>
 {{end}}{{with .Lamps}}<path class="lamp" stroke-width="{{$step}}" d="{{.}}"><title>lamp periods</title></path>
 {{end}}{{range .Hours}}<line class="grid" x1="44" x2="744" y1="{{.Y}}" y2="{{.Y}}"/><text class="yl" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>
 {{end}}{{range .Months}}<line class="tick" x1="{{.X}}" x2="{{.X}}" y1="284" y2="289"/>{{if .Label}}<text x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>{{end}}
@@ -326,7 +327,7 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{
 <span class="key lamp"></span>lamp periods{{end}}{{if .Dark}},
 <span class="key dark"></span>dark windows{{end}}{{if .Thresholds}},
 <span class="key thr"></span>photoperiod threshold crossings{{end}}{{if .Today}},
-<span class="key today"></span>today{{end}}; along the top, ○ new and <span style="color:#e8c547">●</span> full Moon.{{if .Marks}} <span class="key mark"></span>Red lines:{{range $i, $m := .Marks}}{{if $i}};{{end}} {{$m.Label}} ({{$m.Date}}){{end}}.{{end}}</figcaption>
+<span class="key today"></span>today{{if ne .Today.PastW "0"}} (the weeks before it shaded){{end}}{{end}}; along the top, ○ new and <span style="color:#e8c547">●</span> full Moon.{{if .Marks}} <span class="key mark"></span>Red lines:{{range $i, $m := .Marks}}{{if $i}};{{end}} {{$m.Label}} ({{$m.Date}}){{end}}.{{end}}</figcaption>
 </figure>
 {{end}}<table>
 <thead><tr><th>Feed</th><th class="num">Events</th><th class="num">Size</th><th>Subscribe</th></tr></thead>

@@ -409,6 +409,17 @@ func TestChartPolarDayAndNight(t *testing.T) {
 	if todayX != xOf("2015-03-20") {
 		t.Errorf("today at x=%q, want %s", todayX, xOf("2015-03-20"))
 	}
+	// The dates before today are shaded, from the plot's left edge to the
+	// start of today's column.
+	var pastW string
+	for _, r := range svg.all("rect") {
+		if r.Attr["class"] == "past" {
+			pastW = r.Attr["width"]
+		}
+	}
+	if pastW != num(78*step) {
+		t.Errorf("shade before today %q wide, want %s (78 days)", pastW, num(78*step))
+	}
 	// The day length reaches 12 h on 20 March (12 h 30 min, after a date
 	// with no row) and drops under it again.
 	if want := num(plotLeft + 78*step); !slices.Contains(thr, want) {
@@ -448,5 +459,20 @@ func TestCurveBreaksAtMidnight(t *testing.T) {
 	got := curve(days, func(d ChartDay) (time.Duration, bool) { return d.Set, d.HasSet })
 	if strings.Count(got, "M") != 2 || strings.Count(got, "L") != 1 {
 		t.Errorf("curve %q, want two pieces (M, then M L)", got)
+	}
+}
+
+// A chart of more than a year (four weeks before today to a year after it)
+// can hold one day of the year twice: those dates carry their year, the
+// others stay short.
+func TestChartDateYearWhenTwice(t *testing.T) {
+	first, last := time.Date(2026, 11, 5, 0, 0, 0, 0, time.UTC), time.Date(2027, 12, 2, 0, 0, 0, 0, time.UTC)
+	for d, want := range map[string]string{
+		"2026-11-07": "7 Nov 2026", "2027-11-07": "7 Nov 2027", "2026-12-21": "21 Dec", "2027-03-20": "20 Mar", "2026-12-02": "2 Dec 2026",
+	} {
+		day, _ := time.Parse(time.DateOnly, d)
+		if got := chartDate(day, first, last); got != want {
+			t.Errorf("chartDate(%s) = %q, want %q", d, got, want)
+		}
 	}
 }

@@ -22,9 +22,9 @@ import (
 // TestApsidesAgainstDE405 measures the result against DE405 itself.
 //
 // The first estimate is Meeus, Astronomical Algorithms 2nd ed., eq. 38.1
-// (for the barycentre); the extremum is then located on the daily values
-// within ±6 days and refined by Newton's method on the numerical
-// derivative to 0.1 s.
+// (for the barycentre); the extremum is then located on the daily values of
+// VSOP87D's R within ±6 days and refined on the distance above by Newton's
+// method on the numerical derivative to 0.1 s.
 
 // Perihelion returns the instant (UTC) of the Earth's perihelion in year
 // (early January) and the distance then, in au. It returns a *RangeError for
@@ -50,8 +50,8 @@ func apsis(year int, aphelion bool) (time.Time, float64, error) {
 		sign = -1
 	}
 	best, bestR := guess, math.Inf(1)
-	for d := -6.0; d <= 6; d++ {
-		if r := sign * earthSunDistance(guess+d); r < bestR {
+	for d := -6.0; d <= 6; d++ { // VSOP87D's own R is close enough to pick the day
+		if r := sign * evalVSOP(earthR[:], (guess+d-J2000)/julianMillennium); r < bestR {
 			best, bestR = guess+d, r
 		}
 	}

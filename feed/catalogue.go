@@ -184,6 +184,7 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 	days := int(col.last.Sub(col.first).Hours()/24) + 1
 	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: make(map[string]int, days*len(specs)), noted: map[string]bool{}, last: civil(last)}
 	w.out = make([]Entry, 0, days*(len(specs)+1))
+	w.text = make([]byte, 0, days*textPerEntry)
 	if err := col.prepare(altitudes(col.p.Observer, specs)...); err != nil {
 		return nil, err
 	}
@@ -338,6 +339,10 @@ type entryWriter struct {
 // textSpan locates the description (text[from:to]) and the UID
 // (text[uid:uid+uidLen]) of the entry out[entry].
 type textSpan struct{ entry, from, to, uid int }
+
+// textPerEntry is room for the description and UID of most entries: a
+// dawn or dusk with its caution takes about 330 bytes, a sunrise 230.
+const textPerEntry = 384
 
 // uidLen is the length of a UID: 24 hex digits and "@heliocal".
 const uidLen = 24 + len("@heliocal")

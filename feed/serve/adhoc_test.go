@@ -545,4 +545,15 @@ func TestAdhocGzip(t *testing.T) {
 	if len(raw) >= len(want)/2 {
 		t.Errorf("gzip body %d bytes for %d: hardly compressed", len(raw), len(want))
 	}
+	// The ETags name the content: the same feed built again (the cache
+	// emptied by a refresh) has the same ones, another feed others.
+	s.Refresh(t.Context())
+	again := get(t, h, "GET", target, "Accept-Encoding", "gzip")
+	if again.Header.Get("ETag") != gz.Header.Get("ETag") {
+		t.Errorf("rebuilt feed: ETag %q, was %q", again.Header.Get("ETag"), gz.Header.Get("ETag"))
+	}
+	other := get(t, h, "GET", strings.Replace(target, "lat=47.5", "lat=47.6", 1), "Accept-Encoding", "gzip")
+	if other.Header.Get("ETag") == gz.Header.Get("ETag") {
+		t.Errorf("another feed has the same ETag %q", other.Header.Get("ETag"))
+	}
 }

@@ -6,6 +6,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"io"
+	"slices"
 	"strconv"
 	"strings"
 	"text/tabwriter"
@@ -374,17 +375,122 @@ func csvRow(v any, local map[string]string) []string {
 }
 
 // writeEventsICS writes the events of a query as a one-off iCalendar file,
-// built as a feed of these kinds would be.
+// built as a feed of these kinds would be, streamed (unless a kind's notes
+// speak of the whole range, see rangeNotes): the entries are
+// computed feed.ChunkDays dates at a time and each chunk is written before
+// the next is computed, so memory stays that of about two chunks whatever
+// the span. The bytes are those of the whole calendar encoded at once
+// (TestEventsICSStreamedAsWhole).
 func writeEventsICS(ctx context.Context, w io.Writer, s *config.Site, specs []config.KindSpec, sky *feed.Sky, from, to time.Time) error {
 	f := &config.Feed{ID: "events", Title: s.Name + " — events", Site: s.ID, Kinds: specs}
-	cal, err := sky.Calendar(ctx, s, f, from, to, feed.Options{})
+	if slices.ContainsFunc(specs, rangeNotes) {
+		cal, err := sky.Calendar(ctx, s, f, from, to, feed.Options{})
+		if err != nil {
+			return err
+		}
+		data, err := ical.Marshal(cal, ical.Options{Version: versionString()})
+		if err != nil {
+			return err
+		}
+		_, err = w.Write(data)
+		return err
+	}
+	chunk := func(first time.Time) (*feed.Calendar, error) {
+		last := first.AddDate(0, 0, feed.ChunkDays-1)
+		if last.After(to) {
+			last = to
+		}
+		return sky.Calendar(ctx, s, f, first, last, feed.Options{})
+	}
+	var starts []time.Time
+	for d := from; !d.After(to); d = d.AddDate(0, 0, feed.ChunkDays) {
+		starts = append(starts, d)
+	}
+	first, err := chunk(starts[0])
 	if err != nil {
 		return err
 	}
-	data, err := ical.Marshal(cal, ical.Options{Version: versionString()})
+	last := first
+	if len(starts) > 1 {
+		if last, err = chunk(starts[len(starts)-1]); err != nil {
+			return err
+		}
+	}
+	// The head: the whole range's window; the first and last chunks'
+	// entries size its time zone as the whole calendar's would.
+	head := *first
+	head.WindowEnd = last.WindowEnd
+	head.Entries = append(slices.Clip(first.Entries), last.Entries...)
+	st, err := ical.NewStream(w, &head, ical.Options{Version: versionString()})
 	if err != nil {
 		return err
 	}
-	_, err = w.Write(data)
-	return err
+	var pending []feed.Entry
+	for i := range starts {
+		cal := first
+		switch {
+		case i == len(starts)-1:
+			cal = last
+		case i > 0:
+			if cal, err = chunk(starts[i]); err != nil {
+				return err
+			}
+		}
+		if pending, err = streamEntries(st, pending, cal.Entries); err != nil {
+			return err
+		}
+	}
+	if err := st.Write(pending); err != nil {
+		return err
+	}
+	return st.Close()
+}
+
+// rangeNotes reports whether a kind's notes speak of the whole range (a
+// photoperiod no date of the calendar crosses, lamps needed to the end of
+// the calendar): its calendar is computed and encoded whole, not by chunks.
+func rangeNotes(k config.KindSpec) bool {
+	return k.Kind.Name == "photoperiod" || k.Kind.Name == "lighting"
+}
+
+// streamEntries writes the entries of a chunk in the order of the whole
+// calendar (Start, then UID). pending are the earlier chunks' entries not
+// yet written, in that order: those that come before the chunk's first
+// entry are written (no later chunk has an entry that early), the others
+// are merged with the chunk's and returned, to be written with the next.
+// An entry may sort after the next date's first entries (a span named by
+// its evening that starts after midnight; an all-day entry, at 00:00 UTC
+// of its date), so a chunk's last entries wait for the next chunk.
+func streamEntries(st *ical.Stream, pending, entries []feed.Entry) ([]feed.Entry, error) {
+	if len(entries) == 0 {
+		return pending, nil
+	}
+	n := 0
+	for n < len(pending) && entryBefore(&pending[n], &entries[0]) {
+		n++
+	}
+	if err := st.Write(pending[:n]); err != nil {
+		return nil, err
+	}
+	rest := pending[n:]
+	merged := make([]feed.Entry, 0, len(rest)+len(entries))
+	i, j := 0, 0
+	for i < len(rest) || j < len(entries) {
+		if j == len(entries) || (i < len(rest) && entryBefore(&rest[i], &entries[j])) {
+			merged = append(merged, rest[i])
+			i++
+		} else {
+			merged = append(merged, entries[j])
+			j++
+		}
+	}
+	return merged, nil
+}
+
+// entryBefore is the order of a calendar's entries: Start, then UID.
+func entryBefore(a, b *feed.Entry) bool {
+	if c := a.Start.Compare(b.Start); c != 0 {
+		return c < 0
+	}
+	return a.UID < b.UID
 }

@@ -112,6 +112,9 @@ type Encoder struct {
 	w     writer
 	seen  map[string]struct{}
 	comps []ics.Component
+	// spanEntries, when not nil, stand for the calendar's entries in
+	// sizing the VTIMEZONE (see NewStream).
+	spanEntries []feed.Entry
 }
 
 // NewEncoder returns an Encoder writing with opts.
@@ -198,6 +201,10 @@ type writer struct {
 	catKey []byte
 
 	span offsetSpan // the last offset period looked up (see offsetAt)
+
+	// zoneFrom and zoneTo are the span the VTIMEZONE covers (UTC; zero
+	// without one).
+	zoneFrom, zoneTo time.Time
 
 	// events is the backing array of the calendar's events, one per entry.
 	events []vevent
@@ -344,40 +351,57 @@ func (e *Encoder) build(c *feed.Calendar) (*ics.Calendar, int, error) {
 	cal.SetLastModified(w.stamp)
 
 	if w.loc != nil {
-		from, to := w.zoneSpan()
+		from, to := w.zoneSpan(e.spanEntries)
+		w.zoneFrom, w.zoneTo = from, to
 		cal.AddVTimezone(vtimezone(w.tzid, w.loc, from, to))
 	}
 
 	cal.Components = slices.Grow(cal.Components, len(c.Entries))
-	if e.seen == nil {
-		e.seen = make(map[string]struct{}, len(c.Entries))
-	}
-	seen := e.seen
-	clear(seen)
+	e.newUIDs(len(c.Entries))
 	for i := range c.Entries {
-		en := &c.Entries[i]
-		if en.UID == "" {
-			e.release(cal)
-			return nil, 0, fail("entry %d (%s %s): empty UID", i, en.Kind, en.Start.Format(time.RFC3339))
-		}
-		if _, dup := seen[en.UID]; dup {
-			e.release(cal)
-			return nil, 0, fail("entry %d: duplicate UID %q", i, en.UID)
-		}
-		seen[en.UID] = struct{}{}
-		ev, err := w.event(i, en)
+		ev, err := e.entry(i, i, &c.Entries[i])
 		if err != nil {
 			e.release(cal)
-			return nil, 0, fail("entry %q: %w", en.UID, err)
+			return nil, 0, fail("%w", err)
 		}
 		cal.Components = append(cal.Components, ev)
 	}
 	return cal, w.size(cal), nil
 }
 
+// newUIDs empties the set of UIDs seen, for a calendar (or a streamed
+// chunk) of n entries.
+func (e *Encoder) newUIDs(n int) {
+	if e.seen == nil {
+		e.seen = make(map[string]struct{}, n)
+	}
+	clear(e.seen)
+}
+
+// entry checks entry number n, whose UID must not have been seen, and sets up
+// its event in slot i of the event array.
+func (e *Encoder) entry(i, n int, en *feed.Entry) (*vevent, error) {
+	if en.UID == "" {
+		return nil, fmt.Errorf("entry %d (%s %s): empty UID", n, en.Kind, en.Start.Format(time.RFC3339))
+	}
+	if _, dup := e.seen[en.UID]; dup {
+		return nil, fmt.Errorf("entry %d: duplicate UID %q", n, en.UID)
+	}
+	e.seen[en.UID] = struct{}{}
+	ev, err := e.w.event(i, en)
+	if err != nil {
+		return nil, fmt.Errorf("entry %q: %w", en.UID, err)
+	}
+	return ev, nil
+}
+
 // zoneSpan is the span the VTIMEZONE must cover: the window and every timed
-// entry, widened by zoneMargin, starting at a local midnight.
-func (w *writer) zoneSpan() (from, to time.Time) {
+// entry (of entries, nil: the calendar's), widened by zoneMargin, starting at
+// a local midnight.
+func (w *writer) zoneSpan(entries []feed.Entry) (from, to time.Time) {
+	if entries == nil {
+		entries = w.c.Entries
+	}
 	from, to = w.c.WindowStart, w.c.WindowEnd
 	widen := func(t time.Time) {
 		if t.IsZero() {
@@ -392,8 +416,8 @@ func (w *writer) zoneSpan() (from, to time.Time) {
 	}
 	widen(w.c.WindowStart)
 	widen(w.c.WindowEnd)
-	for i := range w.c.Entries {
-		if e := &w.c.Entries[i]; !e.AllDay {
+	for i := range entries {
+		if e := &entries[i]; !e.AllDay {
 			widen(e.Start)
 			widen(e.End)
 		}

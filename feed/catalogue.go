@@ -328,12 +328,33 @@ type entryWriter struct {
 	out    []Entry
 	last   time.Time      // the last local date of the feed
 	alarm  *time.Duration // the alarm of the kinds entry or plan being written, nil for the feed's
+	lamp   *lightingText  // the text of the lighting kind last written
+	names  map[config.Kind]string
 
 	// text holds the descriptions and UIDs of the events written since
 	// the last flushText, and spans where each is: flushText makes them
 	// substrings of one string, instead of two strings per entry.
 	text  []byte
 	spans []textSpan
+}
+
+// kindName returns k.String(), written once per feed for the kinds with a
+// parameter (lighting:16h).
+func (w *entryWriter) kindName(k config.Kind) string {
+	switch k.Name {
+	case config.KindSunAltitude, config.KindSunBand, config.KindPhotoperiod, config.KindLighting:
+	default:
+		return k.Name
+	}
+	if n, ok := w.names[k]; ok {
+		return n
+	}
+	if w.names == nil {
+		w.names = map[config.Kind]string{}
+	}
+	n := k.String()
+	w.names[k] = n
+	return n
 }
 
 // textSpan locates the description (text[from:to]) and the UID
@@ -410,9 +431,7 @@ func (w *entryWriter) event(spec config.KindSpec, e Event) {
 	var title string
 	from := len(w.text)
 	if e.Kind.Name == config.KindLighting {
-		var desc string
-		title, desc = describeLighting(w.site, e, spec)
-		w.text = append(w.text, desc...)
+		w.text, title = w.lightingText(spec).appendDescription(w.text, w.site, e)
 	} else {
 		w.text, title = appendDescription(w.text, w.site, e)
 	}
@@ -426,7 +445,7 @@ func (w *entryWriter) event(spec config.KindSpec, e Event) {
 	if spec.Label != "" {
 		title = spec.Label
 	}
-	kind := e.Kind.String()
+	kind := w.kindName(e.Kind)
 	en := Entry{
 		Kind:       kind,
 		Title:      title,

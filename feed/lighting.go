@@ -31,9 +31,10 @@ func (c *collector) daylights(alt float64) ([]daylight, error) {
 		return nil, err
 	}
 	xs, up := th.xs, th.upFirst
-	var out []daylight
-	for d := c.first; !d.After(c.last); d = d.AddDate(0, 0, 1) {
-		start, end := midnight(d, c.p.Location), midnight(d.AddDate(0, 0, 1), c.p.Location)
+	starts := c.dayStarts()
+	out := make([]daylight, 0, len(starts)-3)
+	for i := 0; i+3 < len(starts); i++ {
+		start, end := starts[i+1], starts[i+2]
 		for len(xs) > 0 && xs[0].Time.Before(start) {
 			up = xs[0].Direction == astro.Rising
 			xs = xs[1:]
@@ -100,6 +101,7 @@ func (c *collector) lighting(k config.Kind) error {
 			}
 		}
 	}
+	lim := limitsOf(spec)
 	lamps := spec.Lamps
 	if lamps == "" {
 		lamps = config.LampsEvening
@@ -122,7 +124,7 @@ func (c *collector) lighting(k config.Kind) error {
 		short := k.DayLength - dl.length
 		add := func(part string, start, end time.Time) {
 			e := Event{Kind: k, Start: start, End: end, Date: d, Part: part, DayLength: dl.length, DirectSun: alt == skylineKey}
-			c.clip(&e, spec)
+			c.clip(&e, lim)
 			if e.End.After(e.Start) {
 				e.Lamp = e.End.Sub(e.Start)
 				c.events = append(c.events, e)
@@ -147,27 +149,46 @@ func (c *collector) lighting(k config.Kind) error {
 	return nil
 }
 
-// clip shortens a lamp period to the options' earliest_on and latest_off:
-// the last earliest_on clock time at or before the period's end, and the
-// first latest_off clock time after its start. A clipped period is Short.
-func (c *collector) clip(e *Event, spec config.KindSpec) {
+// lampLimits are the earliest_on and latest_off clock times of a lighting
+// kind, parsed once (config checked them).
+type lampLimits struct {
+	on, off       time.Duration
+	hasOn, hasOff bool
+}
+
+func limitsOf(spec config.KindSpec) lampLimits {
+	var l lampLimits
+	if spec.EarliestOn != "" {
+		on, err := config.ParseClock(spec.EarliestOn)
+		l.on, l.hasOn = on, err == nil
+	}
+	if spec.LatestOff != "" {
+		off, err := config.ParseClock(spec.LatestOff)
+		l.off, l.hasOff = off, err == nil
+	}
+	return l
+}
+
+// clip shortens a lamp period to the limits: the last earliest_on clock
+// time at or before the period's end, and the first latest_off clock time
+// after its start. A clipped period is Short.
+func (c *collector) clip(e *Event, lim lampLimits) {
 	loc := c.p.Location
-	at := func(d time.Time, clock time.Duration) time.Time { return clockOn(d, clock, loc) }
-	if on, err := config.ParseClock(spec.EarliestOn); spec.EarliestOn != "" && err == nil && e.Part != partEvening {
+	if lim.hasOn && e.Part != partEvening {
 		d := localDate(e.End, loc)
-		t := at(d, on)
+		t := clockOn(d, lim.on, loc)
 		if !t.Before(e.End) {
-			t = at(d.AddDate(0, 0, -1), on)
+			t = clockOn(d.AddDate(0, 0, -1), lim.on, loc)
 		}
 		if e.Start.Before(t) {
 			e.Start, e.Short = t, true
 		}
 	}
-	if off, err := config.ParseClock(spec.LatestOff); spec.LatestOff != "" && err == nil && e.Part != partMorning {
+	if lim.hasOff && e.Part != partMorning {
 		d := localDate(e.Start, loc)
-		t := at(d, off)
+		t := clockOn(d, lim.off, loc)
 		if !t.After(e.Start) {
-			t = at(d.AddDate(0, 0, 1), off)
+			t = clockOn(d.AddDate(0, 0, 1), lim.off, loc)
 		}
 		if e.End.After(t) {
 			e.End, e.Short = t, true
@@ -175,59 +196,84 @@ func (c *collector) clip(e *Event, spec config.KindSpec) {
 	}
 }
 
-// hmShort writes a local clock time as "16:42".
-func hmShort(t time.Time, loc *time.Location) string {
-	return ToMinute(t).In(loc).Format("15:04")
+// appendHM appends a local clock time to the minute, "16:42".
+func appendHourMinute(b []byte, t time.Time, loc *time.Location) []byte {
+	h, m, _ := ToMinute(t).In(loc).Clock()
+	return append(b, byte('0'+h/10), byte('0'+h%10), ':', byte('0'+m/10), byte('0'+m%10))
 }
 
-// describeLighting gives the title and description of a lamp period.
-func describeLighting(s *siteInfo, e Event, spec config.KindSpec) (string, string) {
+// lightingText is the text of a lighting kind's entries that is the same
+// on every date, written once per feed.
+type lightingText struct {
+	key     lightingKey
+	target  string // "16 h"
+	natural string // "Natural day (sunrise to sunset) "
+	site    string // " at <site>; target photoperiod 16 h.\n"
+	clipped string // why a clipped period falls short
+	closing string
+}
+
+// lightingKey is what a lighting kind's text depends on.
+type lightingKey struct {
+	target           time.Duration
+	natural, on, off string
+}
+
+// lightingText returns the text of a lighting kind, built once per feed.
+func (w *entryWriter) lightingText(spec config.KindSpec) *lightingText {
+	key := lightingKey{spec.Kind.DayLength, spec.Natural, spec.EarliestOn, spec.LatestOff}
+	if w.lamp != nil && w.lamp.key == key {
+		return w.lamp
+	}
+	target := amount(spec.Kind.DayLength)
+	lt := &lightingText{key: key, target: target, natural: "Natural day (sunrise to sunset) ",
+		site: " at " + w.site.where + "; target photoperiod " + target + ".\n"}
+	if spec.Natural == config.NaturalCivil {
+		lt.natural = "Natural day (civil dawn to civil dusk) "
+		lt.closing = "Civil twilight is counted as natural light (common practice: twilight still drives photoperiod responses).\n"
+	}
+	lt.closing += "Computed for planning from the site's coordinates; follow the lighting programme of the crop or herd."
+	var limits []string
+	if spec.EarliestOn != "" {
+		limits = append(limits, "lamps on no earlier than "+spec.EarliestOn)
+	}
+	if spec.LatestOff != "" {
+		limits = append(limits, "off no later than "+spec.LatestOff)
+	}
+	lt.clipped = "Clipped (" + strings.Join(limits, ", ") + "): the target of " + target + " is not reached today.\n"
+	w.lamp = lt
+	return lt
+}
+
+// appendDescription appends the description of a lamp period to dst and
+// returns its title.
+func (lt *lightingText) appendDescription(dst []byte, s *siteInfo, e Event) ([]byte, string) {
 	loc := s.TimeZone.Location
-	target := amount(e.Kind.DayLength)
-	lamp := hm(e.Lamp) // as the natural day below
-	var t strings.Builder
-	t.Grow(64)
-	t.WriteString("Lamps on ")
-	t.WriteString(hmShort(e.Start, loc))
-	t.WriteString("–")
-	t.WriteString(hmShort(e.End, loc))
+	var buf [96]byte // on the stack: the title is copied once, into its string
+	t := appendHourMinute(append(buf[:0], "Lamps on "...), e.Start, loc)
+	t = appendHourMinute(append(t, "–"...), e.End, loc)
 	if localDate(e.End.Add(-time.Nanosecond), loc) != e.Date {
-		t.WriteString(" (+1 day)")
+		t = append(t, " (+1 day)"...)
 	}
-	t.WriteString(" (" + lamp)
+	t = appendHM(append(t, " ("...), e.Lamp) // as the natural day below
 	if e.Short {
-		t.WriteString("; " + target + " not reached)")
+		t = append(append(append(t, "; "...), lt.target...), " not reached)"...)
 	} else {
-		t.WriteString(", to reach " + target + ")")
+		t = append(append(append(t, ", to reach "...), lt.target...), ')')
 	}
-	var b strings.Builder
-	b.Grow(400)
 	part := e.Part
 	if part == partPolarNight {
 		part = "polar night, centred on solar noon"
 	}
-	natural := "sunrise to sunset"
-	if spec.Natural == config.NaturalCivil {
-		natural = "civil dawn to civil dusk"
-	}
-	b.WriteString("Supplemental lighting (" + part + "): lamps on at " + localClock(e.Start, loc) + ", off at " +
-		localClock(e.End, loc) + " (" + lamp + ").\nNatural day (" + natural + ") " + hm(e.DayLength) + " at " +
-		s.where + "; target photoperiod " + target + ".\n")
+	b := append(append(append(dst, "Supplemental lighting ("...), part...), "): lamps on at "...)
+	b = appendClock(b, e.Start, loc)
+	b = appendClock(append(b, ", off at "...), e.End, loc)
+	b = append(appendHM(append(b, " ("...), e.Lamp), ").\n"...)
+	b = append(appendHM(append(b, lt.natural...), e.DayLength), lt.site...)
 	if e.Short {
-		var limits []string
-		if spec.EarliestOn != "" {
-			limits = append(limits, "lamps on no earlier than "+spec.EarliestOn)
-		}
-		if spec.LatestOff != "" {
-			limits = append(limits, "off no later than "+spec.LatestOff)
-		}
-		b.WriteString("Clipped (" + strings.Join(limits, ", ") + "): the target of " + target + " is not reached today.\n")
+		b = append(b, lt.clipped...)
 	}
-	if spec.Natural == config.NaturalCivil {
-		b.WriteString("Civil twilight is counted as natural light (common practice: twilight still drives photoperiod responses).\n")
-	}
-	b.WriteString("Computed for planning from the site's coordinates; follow the lighting programme of the crop or herd.")
-	return t.String(), b.String()
+	return append(b, lt.closing...), string(t)
 }
 
 // describeLightingNote gives the note at the start of a stretch of dates

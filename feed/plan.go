@@ -73,9 +73,8 @@ func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed,
 	if err != nil {
 		return nil, err
 	}
-	if err := col.prepare(append(altitudes(col.p.Observer, f.Kinds), altitudes(col.p.Observer, kinds)...)...); err != nil {
-		return nil, err
-	}
+	// the kinds' crossings in one pass; the plans take theirs from it, or
+	// find them on their own dates only (planEntries)
 	es, err := sky.entries(col, s, f.ID, f.Kinds)
 	if err != nil {
 		return nil, err
@@ -96,9 +95,6 @@ func (sky *Sky) PlanEntries(ctx context.Context, s *config.Site, feedID string, 
 		return nil, err
 	}
 	col := &collector{ctx: ctx, sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
-	if err := col.prepare(altitudes(col.p.Observer, kinds)...); err != nil {
-		return nil, err
-	}
 	es, err := sky.planEntries(col, s, feedID, parsed, kinds)
 	if err != nil {
 		return nil, err
@@ -126,16 +122,41 @@ func parsePlans(plans []config.Plan) ([]*plan, []config.KindSpec, error) {
 }
 
 // planEntries writes the plans' entries for the collector's dates, unsorted.
+// The dates come first: a time of the Sun that the feed's kinds did not
+// already need is then found on the plans' dates only, unless they are so
+// many that one pass over the window costs less.
 func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parsed []*plan, kinds []config.KindSpec) ([]Entry, error) {
 	first, last := col.first, col.last
 	col.spec, col.maxLit = config.KindSpec{}, 0
 	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: map[string]int{}, noted: map[string]bool{}, last: last}
+	dates := make([][]planDate, len(parsed))
+	uses := map[config.Kind]int{} // how many dates look up each kind's time
+	for i, pl := range parsed {
+		ds, err := sky.planDates(col.ctx, col.p, pl.rule, first, last)
+		if err != nil {
+			return nil, fmt.Errorf("plan %q: %w", pl.cfg.Title, err)
+		}
+		n := 0
+		for _, pd := range ds {
+			if pl.filter.Allows(pd.date) {
+				ds[n] = pd
+				n++
+			}
+		}
+		dates[i] = ds[:n]
+		if pl.start != nil && !pl.start.IsClock {
+			uses[pl.start.Event] += n
+		}
+		if pl.end != nil && !pl.end.IsClock {
+			uses[pl.end.Event] += 2 * n // the date, and the next one when the end comes first
+		}
+	}
 	// the times of every kind the plans start or end at; an end may be on
 	// the day after the last date
 	next := &collector{ctx: col.ctx, sky: sky, p: col.p, first: last.AddDate(0, 0, 1), last: last.AddDate(0, 0, 1)}
 	times := map[config.Kind]*kindTimes{}
 	for _, ks := range kinds {
-		if kt, ok, err := col.sunTimes(ks.Kind); err != nil {
+		if kt, ok, err := col.sunTimes(ks.Kind, uses[ks.Kind]); err != nil {
 			return nil, err
 		} else if ok {
 			times[ks.Kind] = kt
@@ -150,15 +171,12 @@ func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parse
 		}
 		times[ks.Kind] = kt
 	}
-	for _, pl := range parsed {
-		dates, err := sky.planDates(col.ctx, col.p, pl.rule, first, last)
-		if err != nil {
-			return nil, fmt.Errorf("plan %q: %w", pl.cfg.Title, err)
-		}
+	for i, pl := range parsed {
 		w.alarm = pl.alarm
-		for _, pd := range dates {
-			if pl.filter.Allows(pd.date) {
-				w.plan(pl, pd, times)
+		pt := newPlanText(pl, w.site)
+		for _, pd := range dates[i] {
+			if err := w.plan(pl, pt, pd, times); err != nil {
+				return nil, fmt.Errorf("plan %q: %w", pl.cfg.Title, err)
 			}
 		}
 	}
@@ -167,16 +185,27 @@ func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parse
 
 // kindTimes are the events of one kind by local date, and its notes; for
 // the Sun's rise, set, dawns and dusks, the crossings of its altitude,
-// looked up by date.
+// looked up by date: those of the whole window (sun) or those of each date
+// looked up, found when first asked for (byDate).
 type kindTimes struct {
 	events map[time.Time]Event
 	notes  map[time.Time]Note
 
 	sun    *threshold
+	byDate map[time.Time]dayCrossings
+	c      *collector // the place, the ephemeris and the dates' midnights
+	alt    float64    // byDate: the altitude
 	dir    astro.Direction
 	family string
 	kind   config.Kind
 	loc    *time.Location
+}
+
+// dayCrossings are the Sun's crossings of an altitude within one local
+// date, and whether it is above the altitude when the date begins.
+type dayCrossings struct {
+	xs []astro.Crossing
+	up bool
 }
 
 // sunKinds are the kinds a plan time can follow straight from the Sun's
@@ -196,9 +225,13 @@ var sunKinds = map[string]struct {
 	"astronomical-dusk": {astro.AstronomicalTwilight, astro.Setting, "astronomical"},
 }
 
-// sunTimes returns the kindTimes of a Sun kind from the collector's
-// crossings (which cover two days beyond its dates); false for other kinds.
-func (c *collector) sunTimes(k config.Kind) (*kindTimes, bool, error) {
+// sunTimes returns the kindTimes of a Sun kind, false for other kinds:
+// from the collector's crossings (which cover two days beyond its dates)
+// when its kinds needed the altitude too or uses (the dates that look a
+// time up) are many, else found date by date. A date costs about three
+// dates of a pass over the window (the Sun's culminations of the day
+// before and after are found again).
+func (c *collector) sunTimes(k config.Kind, uses int) (*kindTimes, bool, error) {
 	sk, ok := sunKinds[k.Name]
 	if !ok {
 		return nil, false, nil
@@ -207,47 +240,95 @@ func (c *collector) sunTimes(k config.Kind) (*kindTimes, bool, error) {
 	if alt == 0 {
 		alt = c.p.riseAlt()
 	}
+	kt := &kindTimes{dir: sk.dir, family: sk.family, kind: k, loc: c.p.Location, c: c}
+	days := int(c.last.Sub(c.first).Hours()/24) + 1
+	if _, done := c.thresholds[alt]; !done && alt != skylineKey && 3*uses < days {
+		kt.byDate, kt.c, kt.alt = map[time.Time]dayCrossings{}, c, alt
+		return kt, true, nil
+	}
 	th, err := c.threshold(alt)
 	if err != nil {
 		return nil, false, err
 	}
-	return &kindTimes{sun: th, dir: sk.dir, family: sk.family, kind: k, loc: c.p.Location}, true, nil
+	kt.sun = th
+	return kt, true, nil
 }
 
-// at returns the instant of the kind on the local date d.
-func (kt *kindTimes) at(d time.Time) (time.Time, bool) {
-	if kt.sun == nil {
-		e, ok := kt.events[d]
-		return e.Start, ok
-	}
-	start, end := midnight(d, kt.loc), midnight(d.AddDate(0, 0, 1), kt.loc)
-	xs := kt.sun.xs
-	for i := sort.Search(len(xs), func(i int) bool { return !xs[i].Time.Before(start) }); i < len(xs) && xs[i].Time.Before(end); i++ {
-		if xs[i].Direction == kt.dir {
-			return xs[i].Time, true
+// day returns the Sun's crossings within the local date d.
+func (kt *kindTimes) day(d time.Time) (dayCrossings, error) {
+	start, end := kt.c.bounds(d)
+	if kt.byDate != nil {
+		if dc, ok := kt.byDate[d]; ok {
+			return dc, nil
 		}
+		eph, o := kt.c.sky.eph, kt.c.p.Observer
+		xs, err := eph.SunCrossings(o, kt.alt, start, end)
+		if err != nil {
+			return dayCrossings{}, err
+		}
+		h, err := eph.SunAltitude(o, start)
+		if err != nil {
+			return dayCrossings{}, err
+		}
+		dc := dayCrossings{xs: xs, up: h > kt.alt}
+		kt.byDate[d] = dc
+		return dc, nil
 	}
-	return time.Time{}, false
-}
-
-// note returns the note of a date without the kind's event, when there is one.
-func (kt *kindTimes) note(d time.Time) (Note, bool) {
-	if kt.sun == nil {
-		n, ok := kt.notes[d]
-		return n, ok
-	}
-	start, end := midnight(d, kt.loc), midnight(d.AddDate(0, 0, 1), kt.loc)
 	xs := kt.sun.xs
 	i := sort.Search(len(xs), func(i int) bool { return !xs[i].Time.Before(start) })
-	if i < len(xs) && xs[i].Time.Before(end) {
-		return Note{}, false // the Sun crosses the altitude, the other way
+	j := i
+	for j < len(xs) && xs[j].Time.Before(end) {
+		j++
 	}
 	up := kt.sun.upFirst
 	if i > 0 {
 		up = xs[i-1].Direction == astro.Rising
 	}
+	return dayCrossings{xs: xs[i:j], up: up}, nil
+}
+
+// bounds returns the first instant of the local date d and of the next
+// date, from dayStarts when d is within first-1..last+1.
+func (c *collector) bounds(d time.Time) (time.Time, time.Time) {
+	starts := c.dayStarts()
+	if off := d.Sub(c.first); off%(24*time.Hour) == 0 {
+		if i := int(off/(24*time.Hour)) + 1; i >= 0 && i+1 < len(starts) {
+			return starts[i], starts[i+1]
+		}
+	}
+	return midnight(d, c.p.Location), midnight(d.AddDate(0, 0, 1), c.p.Location)
+}
+
+// at returns the instant of the kind on the local date d.
+func (kt *kindTimes) at(d time.Time) (time.Time, bool, error) {
+	if kt.sun == nil && kt.byDate == nil {
+		e, ok := kt.events[d]
+		return e.Start, ok, nil
+	}
+	dc, err := kt.day(d)
+	if err != nil {
+		return time.Time{}, false, err
+	}
+	for _, x := range dc.xs {
+		if x.Direction == kt.dir {
+			return x.Time, true, nil
+		}
+	}
+	return time.Time{}, false, nil
+}
+
+// note returns the note of a date without the kind's event, when there is one.
+func (kt *kindTimes) note(d time.Time) (Note, bool) {
+	if kt.sun == nil && kt.byDate == nil {
+		n, ok := kt.notes[d]
+		return n, ok
+	}
+	dc, err := kt.day(d) // found already by at
+	if err != nil || len(dc.xs) > 0 {
+		return Note{}, false // the Sun crosses the altitude, the other way
+	}
 	state := astro.AlwaysBelow
-	if up {
+	if dc.up {
 		state = astro.AlwaysAbove
 	}
 	return Note{Kind: kt.kind, Date: d, State: state, Family: kt.family}, true
@@ -278,15 +359,28 @@ func (c *collector) kindTimes(k config.Kind, kt *kindTimes) (*kindTimes, error) 
 func (sky *Sky) planDates(ctx context.Context, p Place, r config.DateRule, first, last time.Time) ([]planDate, error) {
 	var out []planDate
 	switch r.Type {
-	case config.RuleEveryDay, config.RuleWeekly, config.RuleYearly, config.RuleOnce:
+	case config.RuleEveryDay:
 		for d := first; !d.After(last); d = d.AddDate(0, 0, 1) {
-			ok := r.Type == config.RuleEveryDay ||
-				(r.Type == config.RuleWeekly && d.Weekday() == r.Weekday) ||
-				(r.Type == config.RuleYearly && d.Month() == r.Month && d.Day() == r.Day) ||
-				(r.Type == config.RuleOnce && d.Equal(r.Date))
-			if ok {
+			out = append(out, planDate{date: d})
+		}
+		return out, nil
+	case config.RuleWeekly:
+		ahead := (int(r.Weekday-first.Weekday()) + 7) % 7
+		for d := first.AddDate(0, 0, ahead); !d.After(last); d = d.AddDate(0, 0, 7) {
+			out = append(out, planDate{date: d})
+		}
+		return out, nil
+	case config.RuleYearly:
+		for y := first.Year(); y <= last.Year(); y++ {
+			d := time.Date(y, r.Month, r.Day, 0, 0, 0, 0, time.UTC)
+			if d.Month() == r.Month && !d.Before(first) && !d.After(last) { // 02-29 only in leap years
 				out = append(out, planDate{date: d})
 			}
+		}
+		return out, nil
+	case config.RuleOnce:
+		if d := civil(r.Date); !d.Before(first) && !d.After(last) {
+			out = append(out, planDate{date: d})
 		}
 		return out, nil
 	}
@@ -351,8 +445,42 @@ func weekdayOf(d time.Time, wd time.Weekday, rel string) time.Time {
 	return d.AddDate(0, 0, ahead)
 }
 
+// planText is the text of a plan that is the same on each of its dates.
+type planText struct {
+	lead       string // the plan's own description, with its newline
+	rule       string // the date rule in words
+	startWords string // " (30 min after sunset)"
+	endWords   string
+	startName  string // the start event in words, "astronomical dusk"
+	endName    string
+	where      string
+}
+
+func newPlanText(pl *plan, site *siteInfo) *planText {
+	pt := &planText{where: site.where}
+	if r := pl.rule.Type; r == config.RuleEvent || r == config.RuleWeekdayOf {
+		pt.rule = ruleText(pl.rule)
+	}
+	if d := strings.TrimSpace(pl.cfg.Description); d != "" {
+		pt.lead = d + "\n"
+	}
+	if pl.start != nil {
+		pt.startWords = timeWords(*pl.start)
+		if !pl.start.IsClock {
+			pt.startName = inText(pl.start.Event)
+		}
+	}
+	if pl.end != nil {
+		pt.endWords = timeWords(*pl.end)
+		if !pl.end.IsClock {
+			pt.endName = inText(pl.end.Event)
+		}
+	}
+	return pt
+}
+
 // plan writes the entry of one plan on one date.
-func (w *entryWriter) plan(pl *plan, pd planDate, times map[config.Kind]*kindTimes) {
+func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config.Kind]*kindTimes) error {
 	loc := w.site.TimeZone.Location
 	d := pd.date
 	en := Entry{
@@ -363,51 +491,55 @@ func (w *entryWriter) plan(pl *plan, pd planDate, times map[config.Kind]*kindTim
 		Date:       d,
 		Alarm:      w.alarm,
 	}
-	var b strings.Builder
-	if pl.cfg.Description != "" {
-		b.WriteString(strings.TrimSpace(pl.cfg.Description) + "\n")
-	}
+	var buf [512]byte // on the stack: the text is copied once, into the string
+	b := append(buf[:0], pt.lead...)
 	if pd.anchor != nil {
-		fmt.Fprintf(&b, "Date: %s (%s %s).\n", ruleText(pl.rule), inText(pd.anchor.Kind), pd.anchor.Start.In(loc).Format("Mon 2 Jan 2006 15:04 MST"))
+		b = append(append(append(append(b, "Date: "...), pt.rule...), " ("...), inText(pd.anchor.Kind)...)
+		b = pd.anchor.Start.In(loc).AppendFormat(append(b, ' '), "Mon 2 Jan 2006 15:04 MST")
+		b = append(b, ").\n"...)
 	}
 	allDay := func() {
 		en.AllDay, en.Start, en.End = true, d, d.AddDate(0, 0, 1)
 	}
 	if pl.start == nil {
 		allDay()
-		b.WriteString("All day at " + w.site.where + ".")
-		en.Description = b.String()
+		en.Description = string(append(append(append(b, "All day at "...), pt.where...), '.'))
 		w.out = append(w.out, en)
-		return
+		return nil
 	}
-	start, ok := planTime(*pl.start, d, loc, times)
+	start, ok, err := planTime(*pl.start, d, loc, times)
+	if err != nil {
+		return err
+	}
 	if !ok {
 		// the start event does not happen on this date: say so, no time
 		allDay()
-		name := inText(pl.start.Event)
-		en.Title = fmt.Sprintf("%s: no %s today", pl.cfg.Title, name)
+		en.Title = pl.cfg.Title + ": no " + pt.startName + " today"
 		en.Facts.Missing = pl.start.Event.String()
-		fmt.Fprintf(&b, "No time today: the start, %s, does not happen on %s", name, d.Format("Monday 2 January 2006"))
+		b = append(append(append(b, "No time today: the start, "...), pt.startName...), ", does not happen on "...)
+		b = d.AppendFormat(b, "Monday 2 January 2006")
 		if n, ok := times[pl.start.Event].note(d); ok {
 			t, _ := describeNote(w.site, n)
-			b.WriteString(" (" + t + ")")
+			b = append(append(append(b, " ("...), t...), ')')
 		}
-		b.WriteString(" at " + w.site.where + ".")
-		en.Description = b.String()
+		en.Description = string(append(append(append(b, " at "...), pt.where...), '.'))
 		w.out = append(w.out, en)
-		return
+		return nil
 	}
 	en.Start = start
-	fmt.Fprintf(&b, "From %s%s", localClock(start, loc), timeWords(*pl.start))
-	b.WriteString(skippedClock(*pl.start, start, loc))
+	b = append(append(append(b, "From "...), localClock(start, loc)...), pt.startWords...)
+	b = append(b, skippedClock(*pl.start, start, loc)...)
 	switch {
 	case pl.end != nil:
-		end, ok := planTime(*pl.end, d, loc, times)
-		if ok && !end.After(start) {
-			end, ok = planTime(*pl.end, d.AddDate(0, 0, 1), loc, times)
+		end, ok, err := planTime(*pl.end, d, loc, times)
+		if err == nil && ok && !end.After(start) {
+			end, ok, err = planTime(*pl.end, d.AddDate(0, 0, 1), loc, times)
+		}
+		if err != nil {
+			return err
 		}
 		if !ok {
-			fmt.Fprintf(&b, "; no %s that day or the next to end it", inText(pl.end.Event))
+			b = append(append(append(b, "; no "...), pt.endName...), " that day or the next to end it"...)
 			break
 		}
 		en.End = end
@@ -415,33 +547,33 @@ func (w *entryWriter) plan(pl *plan, pd planDate, times map[config.Kind]*kindTim
 		en.End = start.Add(pl.cfg.For.D())
 	}
 	if !en.End.IsZero() {
-		fmt.Fprintf(&b, " to %s", localClock(en.End, loc))
+		b = append(append(b, " to "...), localClock(en.End, loc)...)
 		if pl.end != nil {
-			b.WriteString(timeWords(*pl.end))
-			b.WriteString(skippedClock(*pl.end, en.End, loc))
+			b = append(append(b, pt.endWords...), skippedClock(*pl.end, en.End, loc)...)
 		}
 		if ed := localDate(en.End, loc); ed.After(d) {
 			en.Facts.NextDay = true
-			fmt.Fprintf(&b, " the next day (%s)", ed.Format("Mon 2 Jan"))
+			b = append(ed.AppendFormat(append(b, " the next day ("...), "Mon 2 Jan"), ')')
 		}
 	}
-	b.WriteString(" at " + w.site.where + ".\n" + cautionLegal)
-	en.Description = b.String()
+	b = append(append(append(append(b, " at "...), pt.where...), ".\n"...), cautionLegal...)
+	en.Description = string(b)
 	w.out = append(w.out, en)
+	return nil
 }
 
 // planTime is the instant of a plan time on the local date d: the clock
 // time, or the event of that date with its offset; false when the event
 // does not happen on d.
-func planTime(ts config.TimeSpec, d time.Time, loc *time.Location, times map[config.Kind]*kindTimes) (time.Time, bool) {
+func planTime(ts config.TimeSpec, d time.Time, loc *time.Location, times map[config.Kind]*kindTimes) (time.Time, bool, error) {
 	if ts.IsClock {
-		return clockOn(d, ts.Clock, loc), true
+		return clockOn(d, ts.Clock, loc), true, nil
 	}
-	t, ok := times[ts.Event].at(d)
-	if !ok {
-		return time.Time{}, false
+	t, ok, err := times[ts.Event].at(d)
+	if err != nil || !ok {
+		return time.Time{}, false, err
 	}
-	return t.Add(ts.Offset), true
+	return t.Add(ts.Offset), true, nil
 }
 
 // skippedClock says why a clock time of a plan is shown later than written:

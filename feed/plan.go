@@ -131,6 +131,7 @@ func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parse
 	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: map[string]int{}, noted: map[string]bool{}, last: last}
 	dates := make([][]planDate, len(parsed))
 	uses := map[config.Kind]int{} // how many dates look up each kind's time
+	total := 0
 	for i, pl := range parsed {
 		ds, err := sky.planDates(col.ctx, col.p, pl.rule, first, last)
 		if err != nil {
@@ -144,6 +145,7 @@ func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parse
 			}
 		}
 		dates[i] = ds[:n]
+		total += n
 		if pl.start != nil && !pl.start.IsClock {
 			uses[pl.start.Event] += n
 		}
@@ -171,6 +173,7 @@ func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parse
 		}
 		times[ks.Kind] = kt
 	}
+	w.out = make([]Entry, 0, total)
 	for i, pl := range parsed {
 		w.alarm = pl.alarm
 		pt := newPlanText(pl, w.site)
@@ -654,7 +657,12 @@ func (sky *Sky) moonPhases() ([]astro.Phase, error) {
 }
 
 // sortEntries2 is sortEntries of the entries of a and b together, without
-// first copying them into one slice.
+// first copying them into one slice. The entries come in runs already in
+// order (each kind's events, its notes, the plans' dates): it finds the
+// runs and merges them pairwise, a natural merge sort of indices, which
+// costs a few comparisons per entry where a general sort took a dozen. The
+// order (Start, then UID) is total, so the result does not depend on how
+// it is reached.
 func sortEntries2(a, b []Entry) []Entry {
 	n := len(a)
 	at := func(i int32) *Entry {
@@ -663,17 +671,52 @@ func sortEntries2(a, b []Entry) []Entry {
 		}
 		return &b[int(i)-n]
 	}
+	less := func(i, j int32) bool {
+		x, y := at(i), at(j)
+		if c := x.Start.Compare(y.Start); c != 0 {
+			return c < 0
+		}
+		return x.UID < y.UID
+	}
 	idx := make([]int32, n+len(b))
 	for i := range idx {
 		idx[i] = int32(i)
 	}
-	slices.SortFunc(idx, func(i, j int32) int {
-		x, y := at(i), at(j)
-		if c := x.Start.Compare(y.Start); c != 0 {
-			return c
+	runs := []int{0} // the start of each run, then len(idx)
+	for i := 1; i < len(idx); i++ {
+		if less(idx[i], idx[i-1]) {
+			runs = append(runs, i)
 		}
-		return strings.Compare(x.UID, y.UID)
-	})
+	}
+	runs = append(runs, len(idx))
+	tmp := make([]int32, len(idx))
+	for len(runs) > 2 {
+		merged := runs[:1]
+		for r := 0; r+1 < len(runs); r += 2 {
+			lo, mid := runs[r], runs[r+1]
+			if r+2 >= len(runs) { // an odd run out: carried to the next pass
+				merged = append(merged, mid)
+				break
+			}
+			hi := runs[r+2]
+			i, j, k := lo, mid, lo
+			for i < mid && j < hi {
+				if less(idx[j], idx[i]) {
+					tmp[k] = idx[j]
+					j++
+				} else {
+					tmp[k] = idx[i]
+					i++
+				}
+				k++
+			}
+			k += copy(tmp[k:], idx[i:mid])
+			copy(tmp[k:], idx[j:hi])
+			copy(idx[lo:hi], tmp[lo:hi])
+			merged = append(merged, hi)
+		}
+		runs = merged
+	}
 	out := make([]Entry, len(idx))
 	for i, j := range idx {
 		out[i] = *at(j)

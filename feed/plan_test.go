@@ -2,6 +2,8 @@ package feed
 
 import (
 	"context"
+	"fmt"
+	"slices"
 	"strings"
 	"testing"
 	"time"
@@ -241,5 +243,82 @@ func TestPlanMidnightSkippedSaysSo(t *testing.T) {
 	}
 	if strings.Contains(es[0].Description, "moved") || strings.Contains(es[1].Description, "moved from 02:00") {
 		t.Errorf("a clock time that exists is said to have moved: %q / %q", es[0].Description, es[1].Description)
+	}
+}
+
+// TestPlanSunTimesByDate checks that a plan's Sun time found on its own
+// dates only (the feed's kinds do not need that altitude) is the one a pass
+// over the whole window finds (the feed lists astronomical dusk too), to
+// the millisecond the outputs show, and that both feeds give the plan the
+// same text.
+func TestPlanSunTimesByDate(t *testing.T) {
+	s := site(t, "vienna", 48.2, 16.4, "Europe/Vienna")
+	first, last := date("2027-01-01"), date("2027-12-31")
+	sk, err := NewSky(first.AddDate(0, 0, -PlanMargin), last.AddDate(0, 0, PlanMargin))
+	if err != nil {
+		t.Fatal(err)
+	}
+	plan := config.Plan{Title: "Public night", Date: "saturday nearest new-moon", Start: "astronomical-dusk", End: "nautical-dawn"}
+	kind := func(n string) config.KindSpec { k, _ := config.ParseKind(n); return config.KindSpec{Kind: k} }
+	alone := &config.Feed{ID: "f", Site: s.ID, Kinds: []config.KindSpec{kind("sunrise")}, Plans: []config.Plan{plan}}
+	shared := &config.Feed{ID: "f", Site: s.ID, Kinds: []config.KindSpec{kind("sunrise"), kind("astronomical-dusk"), kind("nautical-dawn")}, Plans: []config.Plan{plan}}
+	plans := func(f *config.Feed) []Entry {
+		cal, err := sk.Calendar(context.Background(), s, f, first, last, Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		var out []Entry
+		for _, e := range cal.Entries {
+			if e.Kind == KindPlan {
+				out = append(out, e)
+			}
+		}
+		return out
+	}
+	a, b := plans(alone), plans(shared)
+	// 2027 has 13 new moons, 7 January to 27 December (USNO phases, from
+	// memory), each with its Saturday
+	if len(a) != 13 || len(b) != len(a) {
+		t.Fatalf("%d and %d plan entries, want 13", len(a), len(b))
+	}
+	for i := range a {
+		if !ToMillisecond(a[i].Start).Equal(ToMillisecond(b[i].Start)) || !ToMillisecond(a[i].End).Equal(ToMillisecond(b[i].End)) ||
+			a[i].Description != b[i].Description || a[i].UID != b[i].UID {
+			t.Errorf("%s: found by date %s–%s, over the window %s–%s", a[i].Date.Format(time.DateOnly), a[i].Start, a[i].End, b[i].Start, b[i].End)
+		}
+	}
+}
+
+// TestSortEntriesRuns checks the merge of ordered runs against a plain sort
+// by Start then UID, on entries in runs (as the kinds write them), in
+// reverse, with equal starts, and split between the two slices.
+func TestSortEntriesRuns(t *testing.T) {
+	t0 := date("2027-01-01")
+	var es []Entry
+	for k := 0; k < 5; k++ { // five kinds, each in date order
+		for d := 0; d < 40; d++ {
+			es = append(es, Entry{UID: fmt.Sprintf("k%d-%02d", k, d), Start: t0.Add(time.Duration(d*24+k%3) * time.Hour)})
+		}
+	}
+	for d := 40; d > 0; d-- { // a run backwards
+		es = append(es, Entry{UID: fmt.Sprintf("r-%02d", d), Start: t0.Add(time.Duration(d) * 7 * time.Hour)})
+	}
+	want := slices.Clone(es)
+	slices.SortFunc(want, func(x, y Entry) int {
+		if c := x.Start.Compare(y.Start); c != 0 {
+			return c
+		}
+		return strings.Compare(x.UID, y.UID)
+	})
+	for _, split := range []int{len(es), 0, 1, 117, len(es) - 3} {
+		got := sortEntries2(slices.Clone(es[:split]), slices.Clone(es[split:]))
+		if len(got) != len(want) {
+			t.Fatalf("split %d: %d entries, want %d", split, len(got), len(want))
+		}
+		for i := range got {
+			if got[i].UID != want[i].UID {
+				t.Fatalf("split %d: entry %d is %s, want %s", split, i, got[i].UID, want[i].UID)
+			}
+		}
 	}
 }

@@ -83,7 +83,7 @@ func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed,
 	if err != nil {
 		return nil, err
 	}
-	return sortEntries2(es, pe), nil
+	return sortEntries(append(es, pe...)), nil
 }
 
 // PlanEntries computes the entries of a feed's plans on the local dates
@@ -654,74 +654,6 @@ func (sky *Sky) moonPhases() ([]astro.Phase, error) {
 		sky.phaseList, sky.phaseErr = astro.MoonPhases(sky.from, sky.to)
 	})
 	return sky.phaseList, sky.phaseErr
-}
-
-// sortEntries2 is sortEntries of the entries of a and b together, without
-// first copying them into one slice. The entries come in runs already in
-// order (each kind's events, its notes, the plans' dates): it finds the
-// runs and merges them pairwise, a natural merge sort of indices, which
-// costs a few comparisons per entry where a general sort took a dozen. The
-// order (Start, then UID) is total, so the result does not depend on how
-// it is reached.
-func sortEntries2(a, b []Entry) []Entry {
-	n := len(a)
-	at := func(i int32) *Entry {
-		if int(i) < n {
-			return &a[i]
-		}
-		return &b[int(i)-n]
-	}
-	less := func(i, j int32) bool {
-		x, y := at(i), at(j)
-		if c := x.Start.Compare(y.Start); c != 0 {
-			return c < 0
-		}
-		return x.UID < y.UID
-	}
-	idx := make([]int32, n+len(b))
-	for i := range idx {
-		idx[i] = int32(i)
-	}
-	runs := []int{0} // the start of each run, then len(idx)
-	for i := 1; i < len(idx); i++ {
-		if less(idx[i], idx[i-1]) {
-			runs = append(runs, i)
-		}
-	}
-	runs = append(runs, len(idx))
-	tmp := make([]int32, len(idx))
-	for len(runs) > 2 {
-		merged := runs[:1]
-		for r := 0; r+1 < len(runs); r += 2 {
-			lo, mid := runs[r], runs[r+1]
-			if r+2 >= len(runs) { // an odd run out: carried to the next pass
-				merged = append(merged, mid)
-				break
-			}
-			hi := runs[r+2]
-			i, j, k := lo, mid, lo
-			for i < mid && j < hi {
-				if less(idx[j], idx[i]) {
-					tmp[k] = idx[j]
-					j++
-				} else {
-					tmp[k] = idx[i]
-					i++
-				}
-				k++
-			}
-			k += copy(tmp[k:], idx[i:mid])
-			copy(tmp[k:], idx[j:hi])
-			copy(idx[lo:hi], tmp[lo:hi])
-			merged = append(merged, hi)
-		}
-		runs = merged
-	}
-	out := make([]Entry, len(idx))
-	for i, j := range idx {
-		out[i] = *at(j)
-	}
-	return out
 }
 
 // clockOn is the instant the local clock shows clock (since midnight) on

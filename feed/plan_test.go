@@ -2,8 +2,6 @@ package feed
 
 import (
 	"context"
-	"fmt"
-	"slices"
 	"strings"
 	"testing"
 	"time"
@@ -285,40 +283,6 @@ func TestPlanSunTimesByDate(t *testing.T) {
 		if !ToMillisecond(a[i].Start).Equal(ToMillisecond(b[i].Start)) || !ToMillisecond(a[i].End).Equal(ToMillisecond(b[i].End)) ||
 			a[i].Description != b[i].Description || a[i].UID != b[i].UID {
 			t.Errorf("%s: found by date %s–%s, over the window %s–%s", a[i].Date.Format(time.DateOnly), a[i].Start, a[i].End, b[i].Start, b[i].End)
-		}
-	}
-}
-
-// TestSortEntriesRuns checks the merge of ordered runs against a plain sort
-// by Start then UID, on entries in runs (as the kinds write them), in
-// reverse, with equal starts, and split between the two slices.
-func TestSortEntriesRuns(t *testing.T) {
-	t0 := date("2027-01-01")
-	var es []Entry
-	for k := 0; k < 5; k++ { // five kinds, each in date order
-		for d := 0; d < 40; d++ {
-			es = append(es, Entry{UID: fmt.Sprintf("k%d-%02d", k, d), Start: t0.Add(time.Duration(d*24+k%3) * time.Hour)})
-		}
-	}
-	for d := 40; d > 0; d-- { // a run backwards
-		es = append(es, Entry{UID: fmt.Sprintf("r-%02d", d), Start: t0.Add(time.Duration(d) * 7 * time.Hour)})
-	}
-	want := slices.Clone(es)
-	slices.SortFunc(want, func(x, y Entry) int {
-		if c := x.Start.Compare(y.Start); c != 0 {
-			return c
-		}
-		return strings.Compare(x.UID, y.UID)
-	})
-	for _, split := range []int{len(es), 0, 1, 117, len(es) - 3} {
-		got := sortEntries2(slices.Clone(es[:split]), slices.Clone(es[split:]))
-		if len(got) != len(want) {
-			t.Fatalf("split %d: %d entries, want %d", split, len(got), len(want))
-		}
-		for i := range got {
-			if got[i].UID != want[i].UID {
-				t.Fatalf("split %d: entry %d is %s, want %s", split, i, got[i].UID, want[i].UID)
-			}
 		}
 	}
 }

@@ -401,46 +401,59 @@ const contrastProblems = `(() => {
 })()`
 
 // Every text of the builder page (labels, body text, links, buttons, the
-// filled preview) meets the WCAG 2.1 AA contrast minimum (SC 1.4.3) at
-// 1280 px, in the light and in the dark palette.
+// filled preview) and of the printable table page /at (its links, the
+// day-by-day table with its times, notes and spans, the caution) meets the
+// WCAG 2.1 AA contrast minimum (SC 1.4.3) at 1280 px, in the light and in
+// the dark palette.
 func TestBrowserContrast(t *testing.T) {
 	ts := builderServer(t)
 	ctx := browser(t)
+	// The table page with every sort of row: timed events, spans (golden
+	// hour, dark windows), all-day notes (a Moon that does not rise).
+	table := ts.URL + "/at?lat=-33.45&lon=-70.67&tz=America/Santiago&name=Quebrada%20vineyard&start=2026-06-21&days=10" +
+		"&kinds=sunrise,sunset,civil-dawn,golden-hour,moonrise,dark-window,full-moon&alarm=15m"
 	for _, scheme := range []string{"light", "dark"} {
 		if _, err := chromedp.Call(ctx, emulation.SetEmulatedMedia, emulation.SetEmulatedMediaParams{
 			Features: []*emulation.MediaFeature{{Name: "prefers-color-scheme", Value: scheme}}}); err != nil {
 			t.Fatal(err)
 		}
-		if err := chromedp.Do(ctx,
-			chromedp.EmulateViewport(1280, 900),
-			chromedp.Navigate(ts.URL+"/"),
-			chromedp.WaitVisible(chromedp.ID("lat")),
-			chromedp.SendKeys(chromedp.ID("lat"), "-33.45"),
-			chromedp.SendKeys(chromedp.ID("lon"), "-70.67"),
-			chromedp.Poll[chromedp.Void](`document.getElementById("result").classList.contains("ready") && document.querySelector("#preview li") !== null`),
-			// The message box is measured too: shown with a text of its own.
-			chromedp.Evaluate[chromedp.Void](`(() => { const m = document.getElementById("message"); m.textContent = "Latitude: enter decimal degrees."; m.hidden = false; })()`),
-		); err != nil {
-			t.Fatalf("%s: %v", scheme, err)
-		}
-		var res struct {
-			Measured int
-			Out      []string
-		}
-		got, err := chromedp.Run(ctx, chromedp.Evaluate[map[string]any](contrastProblems))
-		if err != nil {
-			t.Fatal(err)
-		}
-		b, _ := json.Marshal(got)
-		if err := json.Unmarshal(b, &res); err != nil {
-			t.Fatal(err)
-		}
-		t.Logf("%s: %d text elements measured", scheme, res.Measured)
-		if res.Measured < 50 {
-			t.Errorf("%s: only %d text elements measured", scheme, res.Measured)
-		}
-		for _, p := range res.Out {
-			t.Errorf("%s: contrast below WCAG 2.1 AA: %s", scheme, p)
+		for _, page := range []struct {
+			name, url string
+			ready     []chromedp.Action[chromedp.Void]
+		}{
+			{"builder", ts.URL + "/", []chromedp.Action[chromedp.Void]{
+				chromedp.WaitVisible(chromedp.ID("lat")),
+				chromedp.SendKeys(chromedp.ID("lat"), "-33.45"),
+				chromedp.SendKeys(chromedp.ID("lon"), "-70.67"),
+				chromedp.Poll[chromedp.Void](`document.getElementById("result").classList.contains("ready") && document.querySelector("#preview li") !== null`),
+				// The message box is measured too: shown with a text of its own.
+				chromedp.Evaluate[chromedp.Void](`(() => { const m = document.getElementById("message"); m.textContent = "Latitude: enter decimal degrees."; m.hidden = false; })()`),
+			}},
+			{"table", table, []chromedp.Action[chromedp.Void]{chromedp.WaitVisible(chromedp.CSS("table.days"))}},
+		} {
+			actions := append([]chromedp.Action[chromedp.Void]{chromedp.EmulateViewport(1280, 900), chromedp.Navigate(page.url)}, page.ready...)
+			if err := chromedp.Do(ctx, actions...); err != nil {
+				t.Fatalf("%s, %s: %v", page.name, scheme, err)
+			}
+			var res struct {
+				Measured int
+				Out      []string
+			}
+			got, err := chromedp.Run(ctx, chromedp.Evaluate[map[string]any](contrastProblems))
+			if err != nil {
+				t.Fatal(err)
+			}
+			b, _ := json.Marshal(got)
+			if err := json.Unmarshal(b, &res); err != nil {
+				t.Fatal(err)
+			}
+			t.Logf("%s, %s: %d text elements measured", page.name, scheme, res.Measured)
+			if res.Measured < 50 {
+				t.Errorf("%s, %s: only %d text elements measured", page.name, scheme, res.Measured)
+			}
+			for _, p := range res.Out {
+				t.Errorf("%s, %s: contrast below WCAG 2.1 AA: %s", page.name, scheme, p)
+			}
 		}
 	}
 }

@@ -52,8 +52,9 @@ sea), and a note on stderr names it.
 
 ` + kindsHelp() + `
 
-Parametrised kinds: sun-altitude:<degrees> (e.g. sun-altitude:-3), photoperiod:<duration>
-(e.g. photoperiod:12h30m), lighting:<duration> (e.g. lighting:16h).
+Parametrised kinds: sun-altitude:<degrees> (e.g. sun-altitude:-3), sun-band:<low>..<high>
+(degrees, e.g. sun-band:20..35), photoperiod:<duration> (e.g. photoperiod:12h30m),
+lighting:<duration> (e.g. lighting:16h).
 
 With --feed ID, the entries of a configured feed exactly as the feed has them (its kinds
 with their options, plans, lighting, notes and titles), over the feed's window unless

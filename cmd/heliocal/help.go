@@ -145,7 +145,9 @@ func kindsHelp() string {
 		}
 		word := config.KindNames[i]
 		if _, param, ok := strings.Cut(ex, ":"); ok {
-			if _, err := strconv.ParseFloat(param, 64); err == nil {
+			if strings.Contains(param, "..") {
+				word += ":<low>..<high>" // two altitudes in degrees
+			} else if _, err := strconv.ParseFloat(param, 64); err == nil {
 				word += ":<degrees>"
 			} else {
 				word += ":<duration>"

@@ -57,10 +57,15 @@ func TestHelpWrapped(t *testing.T) {
 		t.Error("events --help still lists every kind in one line")
 	}
 	// every kind is in the list
-	for _, k := range []string{"dark-window", "moon-transit", "photoperiod:<duration>", "sun-altitude:<degrees>", "aphelion", "blue-hour"} {
+	for _, k := range []string{"dark-window", "moon-transit", "photoperiod:<duration>", "sun-altitude:<degrees>", "sun-band:<low>..<high>", "aphelion", "blue-hour"} {
 		if !strings.Contains(out, k) {
 			t.Errorf("events --help lacks %s", k)
 		}
+	}
+	// a kind's parameter is written as the kind takes it: two altitudes
+	// for a band, not a duration
+	if strings.Contains(out, "sun-band:<duration>") || strings.Contains(out, "sun-band:<degrees>") {
+		t.Error("events --help writes sun-band's parameter as one value, not <low>..<high>")
 	}
 }
 

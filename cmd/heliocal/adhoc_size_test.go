@@ -1,0 +1,47 @@
+package main
+
+import (
+	"io"
+	"net/http"
+	"regexp"
+	"strconv"
+	"testing"
+)
+
+// The ad-hoc limit as the serving documentation states it: the default
+// kinds (sunrise, sunset, civil dawn and dusk) fit under the default 1 MB
+// for a year and for the longest window, 400 days, at 47.8° N; five kinds
+// for 400 days do not, and the refusal states the size and the limit in MB
+// and a number of days that, asked for, fits.
+func TestAdhocLimitAsDocumented(t *testing.T) {
+	ts := builderServer(t)
+	get := func(query string) (int, []byte) {
+		t.Helper()
+		r, err := http.Get(ts.URL + "/at.ics?lat=47.80&lon=13.04&" + query)
+		if err != nil {
+			t.Fatal(err)
+		}
+		defer r.Body.Close()
+		b, err := io.ReadAll(r.Body)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return r.StatusCode, b
+	}
+	// 400 days fitting, a year does too
+	if code, b := get("days=400"); code != http.StatusOK || len(b) >= 1_000_000 {
+		t.Errorf("default kinds, 400 days: status %d, %d bytes; want 200 under 1 MB", code, len(b))
+	}
+	const five = "kinds=sunrise,sunset,civil-dawn,civil-dusk,solar-noon&"
+	code, msg := get(five + "days=400")
+	m := regexp.MustCompile(`is (\d+\.\d+) MB, over the 1 MB limit per ad-hoc feed .*\bdays=(\d+) should fit`).FindSubmatch(msg)
+	if code != http.StatusBadRequest || m == nil {
+		t.Fatalf("five kinds, 400 days: status %d, %q; want a 400 stating the size in MB and days= that fits", code, msg)
+	}
+	if code, b := get(five + "days=" + string(m[2])); code != http.StatusOK {
+		t.Errorf("days=%s, as the refusal advises: status %d, %q", m[2], code, b[:min(len(b), 200)])
+	}
+	if size, _ := strconv.ParseFloat(string(m[1]), 64); size <= 1 {
+		t.Errorf("refused size %s MB is not over 1 MB", m[1])
+	}
+}

@@ -329,12 +329,16 @@ func adhocFeed(l layout, refresh time.Duration) serve.AdhocFunc {
 // applies at once.
 func adhocFeedFrom(current func() adhocSettings) serve.AdhocFunc {
 	calendar := adhocCalendarFrom(current)
+	// encoders keep their working memory from one feed to the next
+	encoders := sync.Pool{New: func() any { return ical.NewEncoder(ical.Options{Version: versionString()}) }}
 	return func(ctx context.Context, q serve.AdhocQuery) ([]byte, error) {
 		cal, err := calendar(ctx, q)
 		if err != nil {
 			return nil, err
 		}
-		return ical.Marshal(cal, ical.Options{Version: versionString()})
+		enc := encoders.Get().(*ical.Encoder)
+		defer encoders.Put(enc)
+		return enc.Append(nil, cal)
 	}
 }
 

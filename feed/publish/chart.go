@@ -287,7 +287,11 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 		Phases:     phaseViews(c.Phases, first, last),
 		Today:      todayMark(c.Today, days),
 	}
-	v.Summary = chartSummary(days)
+	ahead := days // the summary speaks of the year from today
+	if i := todayIndex(c.Today, days); i > 0 {
+		ahead = days[i:]
+	}
+	v.Summary = chartSummary(ahead)
 	for _, t := range v.Thresholds {
 		v.Summary += " " + t.Text + "."
 	}
@@ -311,7 +315,8 @@ func chartTitle(siteName string, first, last time.Time) string {
 }
 
 // chartSummary says in words what the chart shows: the shortest and the
-// longest daylight, and how many days the Sun stays up or down all day.
+// longest daylight, and how many days the Sun stays up or down all day,
+// over days (the chart's dates from today).
 func chartSummary(days []ChartDay) string {
 	lo, hi := 0, 0
 	polarDay, polarNight := 0, 0
@@ -483,13 +488,26 @@ func todayMark(today time.Time, days []ChartDay) *todayView {
 	if today.IsZero() {
 		return nil
 	}
-	i := int(math.Round(today.Sub(days[0].Date).Hours() / 24))
-	if i < 0 || i >= len(days) {
+	i := todayIndex(today, days)
+	if i < 0 {
 		return nil
 	}
 	x := plotLeft + (float64(i)+0.5)*dayStep(len(days))
 	return &todayView{X: num(x), TX: num(x + 3), TY: num(plotBottom + 26), Date: days[i].Date.Format("2 Jan 2006"),
 		PastW: num(float64(i) * dayStep(len(days)))}
+}
+
+// todayIndex is the index of today's date in days, -1 when it is not in
+// the chart (or today is not set).
+func todayIndex(today time.Time, days []ChartDay) int {
+	if today.IsZero() || len(days) == 0 {
+		return -1
+	}
+	i := int(math.Round(today.Sub(days[0].Date).Hours() / 24))
+	if i < 0 || i >= len(days) {
+		return -1
+	}
+	return i
 }
 
 // formatHours writes a day length as "12 h" or "14 h 30 min".

@@ -476,3 +476,22 @@ func TestChartDateYearWhenTwice(t *testing.T) {
 		}
 	}
 }
+
+// The chart's words speak of the year from today: the weeks drawn before
+// today (here three days of polar night) count neither in the shortest day
+// nor in the days the Sun stays down.
+func TestChartSummaryFromToday(t *testing.T) {
+	first := time.Date(2027, 1, 10, 0, 0, 0, 0, time.UTC)
+	var days []ChartDay
+	for i := range 10 {
+		d := ChartDay{Date: first.AddDate(0, 0, i), Daylight: time.Duration(i) * time.Hour}
+		if i < 3 {
+			d.Daylight = 0
+		}
+		days = append(days, d)
+	}
+	v := chart("ice", "Ice camp", &SiteChart{Days: days, Today: first.AddDate(0, 0, 3)})
+	if strings.Contains(v.Summary, "stays down") || !strings.Contains(v.Summary, "Daylight from 3 h 00 min (13 Jan) to 9 h 00 min (19 Jan)") {
+		t.Errorf("summary %q: want the days from 13 Jan only", v.Summary)
+	}
+}

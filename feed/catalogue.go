@@ -74,6 +74,10 @@ func NewCatalogue(cfg *config.Config, opts Options) (*Catalogue, error) {
 	return c, nil
 }
 
+// Sky is the catalogue's shared ephemeris, for computations that should
+// share it with the feeds (the index page's charts).
+func (c *Catalogue) Sky() *Sky { return c.sky }
+
 // window returns the first and last local dates of a feed (00:00 UTC).
 func (c *Catalogue) window(f *config.Feed, s *config.Site) (time.Time, time.Time) {
 	today := localDate(c.opts.Now, s.TimeZone.Location)

@@ -3,6 +3,7 @@ package feed
 import (
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 	"time"
 
@@ -60,7 +61,7 @@ func (c *collector) lit(e *Event) error {
 
 func (c *collector) phases(k config.Kind) error {
 	from, to := c.span(0)
-	ps, err := astro.MoonPhases(from, to)
+	ps, err := c.sky.phasesBetween(from, to)
 	if err != nil {
 		return err
 	}
@@ -74,6 +75,23 @@ func (c *collector) phases(k config.Kind) error {
 		}
 	}
 	return nil
+}
+
+// phasesBetween returns the Moon's phases with from ≤ Time < to: from the
+// Sky's list, found once for every feed and chart of a build, when the Sky
+// covers the span (astro.MoonPhases solves each phase on its own, so the
+// instants are those of a search over the span alone), else searched.
+func (sky *Sky) phasesBetween(from, to time.Time) ([]astro.Phase, error) {
+	if from.Before(sky.from) || to.After(sky.to) {
+		return astro.MoonPhases(from, to)
+	}
+	all, err := sky.moonPhases()
+	if err != nil {
+		return nil, err
+	}
+	i, _ := slices.BinarySearchFunc(all, from, func(p astro.Phase, t time.Time) int { return p.Time.Compare(t) })
+	j, _ := slices.BinarySearchFunc(all, to, func(p astro.Phase, t time.Time) int { return p.Time.Compare(t) })
+	return all[i:j], nil
 }
 
 // addLit adds a Moon event at its local date, when that date is in range,

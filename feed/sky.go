@@ -157,6 +157,12 @@ func NewSky(first, last time.Time) (*Sky, error) {
 	return &Sky{from: from, to: to, eph: eph}, nil
 }
 
+// Covers reports whether the Sky serves the local dates first..last, as a
+// NewSky(first, last) would.
+func (s *Sky) Covers(first, last time.Time) bool {
+	return !civil(first).AddDate(0, 0, -2).Before(s.from) && !civil(last).AddDate(0, 0, 3).After(s.to)
+}
+
 // civil returns the date part of t as 00:00 UTC.
 func civil(t time.Time) time.Time {
 	y, m, d := t.Date()

@@ -165,3 +165,15 @@ func (w *discardResponse) Write(p []byte) (int, error) {
 	w.n += int64(len(p))
 	return len(p), nil
 }
+
+// BenchmarkPublishDemo publishes the built-in demo (its feeds, feeds.json
+// and index.html with a year's chart per site) into a fresh directory, as
+// `heliocal publish` does. Its CPU profile shows the charts' share.
+func BenchmarkPublishDemo(b *testing.B) {
+	b.ReportAllocs()
+	for b.Loop() {
+		if code := run(context.Background(), []string{"publish", "--out", b.TempDir()}, io.Discard, io.Discard, noEnv); code != 0 {
+			b.Fatalf("exit %d", code)
+		}
+	}
+}

@@ -72,7 +72,7 @@ func build(cfg *config.Config, now time.Time, l layout) ([]publish.Source, publi
 	opts := publish.RenderOptions{
 		Version:      versionString(),
 		Generated:    time.Date(now.Year(), now.Month(), now.Day(), 0, 0, 0, 0, time.UTC),
-		Charts:       chartsFor(cfg, now),
+		Charts:       chartsFor(cfg, now, cat.Sky()),
 		MaxFeedBytes: cfg.Service.MaxFeedBytes,
 		Title:        cfg.Page.Title,
 		Page:         pageText(cfg),
@@ -89,13 +89,22 @@ const chartWeeksBefore = 4
 // chartsFor draws, for each site, the year ahead and the weeks before
 // today: day length and twilight bands, the events of the site's feeds as
 // marks, and its photoperiod thresholds as levels.
-func chartsFor(cfg *config.Config, now time.Time) func(context.Context, feed.Site) (*publish.SiteChart, error) {
+//
+// The charts share the feeds' ephemeris (feeds, when it covers the charts'
+// dates, as it does when the feeds reach back four weeks and ahead a year):
+// the Sun's and Moon's positions, the Moon's phases and the year's events are
+// then found once for the feeds and the charts.
+func chartsFor(cfg *config.Config, now time.Time, feeds *feed.Sky) func(context.Context, feed.Site) (*publish.SiteChart, error) {
 	// One ephemeris serves every site's chart: a site's local "today" is
 	// within a day of the UTC one, and the Sky keeps two days of margin.
 	sharedSky := sync.OnceValues(func() (*feed.Sky, error) {
 		u := now.UTC()
 		today := time.Date(u.Year(), u.Month(), u.Day(), 0, 0, 0, 0, time.UTC)
-		return feed.NewSky(today.AddDate(0, 0, -7*chartWeeksBefore-1), today.AddDate(1, 0, 1))
+		first, last := today.AddDate(0, 0, -7*chartWeeksBefore-1), today.AddDate(1, 0, 1)
+		if feeds != nil && feeds.Covers(first, last) {
+			return feeds, nil
+		}
+		return feed.NewSky(first, last)
 	})
 	return func(ctx context.Context, fs feed.Site) (*publish.SiteChart, error) {
 		site, ok := cfg.Site(fs.ID)
@@ -117,11 +126,17 @@ func chartsFor(cfg *config.Config, now time.Time) func(context.Context, feed.Sit
 		chart.Today = today
 		levels, marks, spanKinds := chartKinds(cfg, site.ID)
 		chart.Levels = levels
-		if chart.Marks, err = chartMarks(ctx, sky, place, marks, first, last); err != nil {
+		// One search for the clock's kinds and the marks: the site's
+		// crossings of the Sun (over its skyline too) are found once.
+		clock := append([]config.Kind{chartKind("sunrise"), chartKind("sunset"), chartKind("new-moon"), chartKind("full-moon")}, spanKinds...)
+		events, _, err := sky.Events(ctx, place, append(clock, marks...), first, last)
+		if err != nil {
 			return nil, err
 		}
-		if err := chartClock(ctx, sky, place, site.TimeZone.Location, spanKinds, chart); err != nil {
-			return nil, err
+		for _, e := range events {
+			if !chartClock(e, site.TimeZone.Location, chart) {
+				chart.Marks = append(chart.Marks, publish.Mark{At: e.Start, Label: markLabel(e)})
+			}
 		}
 		return chart, nil
 	}
@@ -179,40 +194,35 @@ func chartKind(name string) config.Kind {
 	return k
 }
 
-// chartClock fills in the sunrise and sunset of each day on the local clock,
-// the new and full Moons, and the pieces of each lamp period and dark window
-// (split at local midnight) of the span kinds.
-func chartClock(ctx context.Context, sky *feed.Sky, place feed.Place, loc *time.Location, spanKinds []config.Kind, c *publish.SiteChart) error {
-	first, last := c.Days[0].Date, c.Days[len(c.Days)-1].Date
-	kinds := append([]config.Kind{chartKind("sunrise"), chartKind("sunset"), chartKind("new-moon"), chartKind("full-moon")}, spanKinds...)
-	events, _, err := sky.Events(ctx, place, kinds, first, last)
-	if err != nil {
-		return err
-	}
-	index := func(date time.Time) int { return int(date.Sub(first).Hours()/24 + 0.5) }
-	for _, e := range events {
-		switch e.Kind.Name {
-		case "sunrise", "sunset":
-			i := index(e.Date)
-			if i < 0 || i >= len(c.Days) {
-				continue
-			}
-			d := &c.Days[i]
-			if e.Kind.Name == "sunrise" && !d.HasRise {
-				d.Rise, d.HasRise = clockOf(e.Start, loc), true
-			}
-			if e.Kind.Name == "sunset" && !d.HasSet {
-				d.Set, d.HasSet = clockOf(e.Start, loc), true
-			}
-		case "new-moon", "full-moon":
-			c.Phases = append(c.Phases, publish.Phase{At: e.Start, Full: e.Kind.Name == "full-moon"})
-		case config.KindLighting:
-			c.Lamps = append(c.Lamps, clockSpans(e.Start, e.End, loc)...)
-		case "dark-window":
-			c.Dark = append(c.Dark, clockSpans(e.Start, e.End, loc)...)
+// chartClock draws one event of the clock's kinds: the sunrise and sunset
+// of its day on the local clock, a new or full Moon, the pieces of a lamp
+// period or dark window (split at local midnight). It reports false for an
+// event of another kind (a mark: the marks are yearly kinds, of other names).
+func chartClock(e feed.Event, loc *time.Location, c *publish.SiteChart) bool {
+	first := c.Days[0].Date
+	switch e.Kind.Name {
+	case "sunrise", "sunset":
+		i := int(e.Date.Sub(first).Hours()/24 + 0.5)
+		if i < 0 || i >= len(c.Days) {
+			return true
 		}
+		d := &c.Days[i]
+		if e.Kind.Name == "sunrise" && !d.HasRise {
+			d.Rise, d.HasRise = clockOf(e.Start, loc), true
+		}
+		if e.Kind.Name == "sunset" && !d.HasSet {
+			d.Set, d.HasSet = clockOf(e.Start, loc), true
+		}
+	case "new-moon", "full-moon":
+		c.Phases = append(c.Phases, publish.Phase{At: e.Start, Full: e.Kind.Name == "full-moon"})
+	case config.KindLighting:
+		c.Lamps = append(c.Lamps, clockSpans(e.Start, e.End, loc)...)
+	case "dark-window":
+		c.Dark = append(c.Dark, clockSpans(e.Start, e.End, loc)...)
+	default:
+		return false
 	}
-	return nil
+	return true
 }
 
 // clockOf is the local clock reading of t as time since midnight.
@@ -242,22 +252,6 @@ func clockSpans(start, end time.Time, loc *time.Location) []publish.ClockSpan {
 		start = next
 	}
 	return out
-}
-
-// chartMarks computes the events of the mark kinds over first..last.
-func chartMarks(ctx context.Context, sky *feed.Sky, place feed.Place, kinds []config.Kind, first, last time.Time) ([]publish.Mark, error) {
-	if len(kinds) == 0 {
-		return nil, nil
-	}
-	events, _, err := sky.Events(ctx, place, kinds, first, last)
-	if err != nil {
-		return nil, err
-	}
-	marks := make([]publish.Mark, len(events))
-	for i, e := range events {
-		marks[i] = publish.Mark{At: e.Start, Label: markLabel(e)}
-	}
-	return marks, nil
 }
 
 func markLabel(e feed.Event) string {

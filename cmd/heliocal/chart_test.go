@@ -2,6 +2,7 @@ package main
 
 import (
 	"context"
+	"reflect"
 	"strings"
 	"testing"
 	"time"
@@ -25,7 +26,7 @@ feeds:
 		t.Fatal(err)
 	}
 	now := time.Date(2024, 1, 1, 15, 0, 0, 0, time.UTC)
-	c, err := chartsFor(cfg, now)(context.Background(), feed.SiteOf(&cfg.Sites[0]))
+	c, err := chartsFor(cfg, now, nil)(context.Background(), feed.SiteOf(&cfg.Sites[0]))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -103,5 +104,69 @@ feeds:
 	}
 	if jan == 0 || jun != 0 {
 		t.Errorf("lamp pieces: %d on 1 Jan (want some), %d on 21 Jun (want none)", jan, jun)
+	}
+}
+
+// A chart drawn on the feeds' ephemeris (the catalogue's Sky, which covers
+// the chart's dates) is the chart drawn on an ephemeris of its own, and the
+// marks and the clock's events come out of one search: the seasons are
+// marked at the USNO instants (testdata/reference/seasons.csv,
+// march-equinox-2024 … december-solstice-2024, within the chart's minute),
+// beside the lamp periods, dark windows and the Moon's phases.
+func TestChartSharesFeedsSky(t *testing.T) {
+	cfg, err := config.Parse(strings.NewReader(`
+sites:
+  - {id: mall, latitude: 38.889444, longitude: -77.035278, elevation: 0, timezone: America/New_York}
+feeds:
+  - {id: mall-sun, site: mall, days_back: 40, days_ahead: 400, kinds: [sunrise, sunset, "lighting:14h", moon-phases, seasons, dark-window]}
+`), "yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	now := time.Date(2024, 1, 1, 15, 0, 0, 0, time.UTC)
+	cat, err := feed.NewCatalogue(cfg, feed.Options{Now: now})
+	if err != nil {
+		t.Fatal(err)
+	}
+	site := feed.SiteOf(&cfg.Sites[0])
+	shared, err := chartsFor(cfg, now, cat.Sky())(context.Background(), site)
+	if err != nil {
+		t.Fatal(err)
+	}
+	own, err := chartsFor(cfg, now, nil)(context.Background(), site)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// The day's durations come from the ephemeris' fit, whose blocks start
+	// where its span does: they agree to well within a millisecond (the
+	// chart draws them to a tenth of a pixel, about 6 s); all else exactly.
+	near := func(a, b time.Duration) bool { return (a - b).Abs() < time.Millisecond }
+	for i := range own.Days {
+		s, o := shared.Days[i], own.Days[i]
+		if !near(s.Daylight, o.Daylight) || !near(s.Civil, o.Civil) || !near(s.Nautical, o.Nautical) || !near(s.Astronomical, o.Astronomical) {
+			t.Errorf("day %v: %+v on the feeds' ephemeris, %+v on its own", o.Date, s, o)
+		}
+		shared.Days[i] = o
+	}
+	if !reflect.DeepEqual(shared, own) {
+		t.Error("the chart on the feeds' ephemeris differs from the chart on its own")
+	}
+	if len(own.Lamps) == 0 || len(own.Dark) == 0 || len(own.Phases) < 24 {
+		t.Errorf("%d lamp pieces, %d dark pieces, %d phases: want some of each (and 24+ phases)", len(own.Lamps), len(own.Dark), len(own.Phases))
+	}
+	for _, want := range []struct {
+		label string
+		at    time.Time
+	}{{"Mar equinox", time.Date(2024, 3, 20, 3, 6, 0, 0, time.UTC)}, {"Jun solstice", time.Date(2024, 6, 20, 20, 51, 0, 0, time.UTC)},
+		{"Sep equinox", time.Date(2024, 9, 22, 12, 44, 0, 0, time.UTC)}, {"Dec solstice", time.Date(2024, 12, 21, 9, 20, 0, 0, time.UTC)}} {
+		found := false
+		for _, m := range own.Marks {
+			if d := m.At.Sub(want.at); m.Label == want.label && d > -time.Minute && d < time.Minute {
+				found = true
+			}
+		}
+		if !found {
+			t.Errorf("no mark %q at %v among %v", want.label, want.at, own.Marks)
+		}
 	}
 }

@@ -506,7 +506,7 @@ func (w *entryWriter) note(n Note) {
 		AllDay:      true,
 		Date:        n.Date,
 		Alarm:       w.alarm,
-		Facts:       Facts{Note: true, State: n.State, Until: n.Until, DayLength: n.DayLength, DirectSun: n.DirectSun},
+		Facts:       Facts{Note: true, State: n.State, Until: n.Until, DayLength: n.DayLength, DirectSun: n.DirectSun, Short: n.Lamp > 0},
 	})
 }
 

@@ -102,6 +102,7 @@ func (c *collector) lighting(k config.Kind) error {
 		}
 	}
 	lim := limitsOf(spec)
+	minLen := spec.MinDuration.D()
 	lamps := spec.Lamps
 	if lamps == "" {
 		lamps = config.LampsEvening
@@ -122,31 +123,88 @@ func (c *collector) lighting(k config.Kind) error {
 			continue
 		}
 		short := k.DayLength - dl.length
-		add := func(part string, start, end time.Time) {
+		period := func(part string, start, end time.Time) Event {
 			e := Event{Kind: k, Start: start, End: end, Date: d, Part: part, DayLength: dl.length, DirectSun: alt == skylineKey}
 			c.clip(&e, lim)
-			if e.End.After(e.Start) {
-				e.Lamp = e.End.Sub(e.Start)
-				c.events = append(c.events, e)
+			if !e.End.After(e.Start) {
+				e.End = e.Start
 			}
+			e.Lamp = e.End.Sub(e.Start)
+			return e
 		}
+		morning := func(n time.Duration) Event { return period(partMorning, dl.first.Add(-n), dl.first) }
+		evening := func(n time.Duration) Event { return period(partEvening, dl.last, dl.last.Add(n)) }
+		var ps [2]Event
 		switch {
 		case dl.length == 0:
 			noon, ok := noons[d]
 			if !ok {
 				noon = midnight(d, c.p.Location).Add(12 * time.Hour)
 			}
-			add(partPolarNight, noon.Add(-short/2), noon.Add(short-short/2))
+			ps[0] = period(partPolarNight, noon.Add(-short/2), noon.Add(short-short/2))
 		case lamps == config.LampsMorning:
-			add(partMorning, dl.first.Add(-short), dl.first)
+			ps[0] = morning(short)
 		case lamps == config.LampsBoth:
-			add(partMorning, dl.first.Add(-short/2), dl.first)
-			add(partEvening, dl.last, dl.last.Add(short-short/2))
+			ps[0], ps[1] = c.bothPeriods(short, minLen, morning, evening)
 		default:
-			add(partEvening, dl.last, dl.last.Add(short))
+			ps[0] = evening(short)
+		}
+		var got, dropped time.Duration
+		n0 := len(c.events)
+		for _, e := range ps {
+			switch {
+			case e.Lamp <= 0:
+			case e.Lamp < minLen:
+				dropped += e.Lamp
+			default:
+				got += e.Lamp
+				c.events = append(c.events, e)
+			}
+		}
+		if got < short {
+			for j := n0; j < len(c.events); j++ {
+				c.events[j].Short = true
+			}
+		}
+		if got == 0 {
+			// lamps are needed but none are scheduled: say so, and why
+			why := "under the " + amount(minLen) + " minimum"
+			if dropped == 0 {
+				why = "the lamp limits leave no time (" + lim.text + ")"
+			}
+			c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.AlwaysBelow, Family: k.String(),
+				DayLength: dl.length, Lamp: short, Why: why})
 		}
 	}
 	return nil
+}
+
+// bothPeriods places the lamp time short of a date as two periods, half
+// before sunrise (morning) and half after sunset (evening), as lamps: both
+// asks. A period cut by its limit (earliest_on, latest_off) is made up by
+// the other as far as the other's own limit allows; a period under minLen
+// gives its time to the other, so that the date gets one period of the
+// whole shortfall instead of two too short to schedule.
+func (c *collector) bothPeriods(short, minLen time.Duration, morning, evening func(time.Duration) Event) (Event, Event) {
+	half := short / 2
+	m := morning(half)
+	e := evening(short - m.Lamp) // its half, and what the morning could not take
+	if e.Lamp < short-m.Lamp {
+		m = morning(short - e.Lamp) // the evening is cut: the morning makes it up
+	}
+	why := "clipped"
+	if minLen > 0 && m.Lamp > 0 && m.Lamp < minLen {
+		m, e, why = Event{}, evening(short), "minimum"
+	} else if minLen > 0 && e.Lamp > 0 && e.Lamp < minLen {
+		e, m, why = Event{}, morning(short), "minimum"
+	}
+	if x := m.Lamp - half; x > 0 {
+		m.MadeUp, m.MadeUpWhy = x, why
+	}
+	if x := e.Lamp - (short - half); x > 0 {
+		e.MadeUp, e.MadeUpWhy = x, why
+	}
+	return m, e
 }
 
 // lampLimits are the earliest_on and latest_off clock times of a lighting
@@ -154,24 +212,29 @@ func (c *collector) lighting(k config.Kind) error {
 type lampLimits struct {
 	on, off       time.Duration
 	hasOn, hasOff bool
+	text          string // "lamps on no earlier than 05:30, off no later than 22:00"
 }
 
 func limitsOf(spec config.KindSpec) lampLimits {
 	var l lampLimits
+	var text []string
 	if spec.EarliestOn != "" {
 		on, err := config.ParseClock(spec.EarliestOn)
 		l.on, l.hasOn = on, err == nil
+		text = append(text, "lamps on no earlier than "+spec.EarliestOn)
 	}
 	if spec.LatestOff != "" {
 		off, err := config.ParseClock(spec.LatestOff)
 		l.off, l.hasOff = off, err == nil
+		text = append(text, "off no later than "+spec.LatestOff)
 	}
+	l.text = strings.Join(text, ", ")
 	return l
 }
 
 // clip shortens a lamp period to the limits: the last earliest_on clock
 // time at or before the period's end, and the first latest_off clock time
-// after its start. A clipped period is Short.
+// after its start, and marks a period it cuts Clipped.
 func (c *collector) clip(e *Event, lim lampLimits) {
 	loc := c.p.Location
 	if lim.hasOn && e.Part != partEvening {
@@ -181,7 +244,7 @@ func (c *collector) clip(e *Event, lim lampLimits) {
 			t = clockOn(d.AddDate(0, 0, -1), lim.on, loc)
 		}
 		if e.Start.Before(t) {
-			e.Start, e.Short = t, true
+			e.Start, e.Clipped = t, true
 		}
 	}
 	if lim.hasOff && e.Part != partMorning {
@@ -191,7 +254,7 @@ func (c *collector) clip(e *Event, lim lampLimits) {
 			t = clockOn(d.AddDate(0, 0, 1), lim.off, loc)
 		}
 		if e.End.After(t) {
-			e.End, e.Short = t, true
+			e.End, e.Clipped = t, true
 		}
 	}
 }
@@ -209,19 +272,21 @@ type lightingText struct {
 	target  string // "16 h"
 	natural string // "Natural day (sunrise to sunset) "
 	site    string // " at <site>; target photoperiod 16 h.\n"
+	limits  string // "lamps on no earlier than 05:30, off no later than 22:00"
 	clipped string // why a clipped period falls short
+	minimum string // "15 min"
 	closing string
 }
 
 // lightingKey is what a lighting kind's text depends on.
 type lightingKey struct {
-	target           time.Duration
+	target, minimum  time.Duration
 	natural, on, off string
 }
 
 // lightingText returns the text of a lighting kind, built once per feed.
 func (w *entryWriter) lightingText(spec config.KindSpec) *lightingText {
-	key := lightingKey{spec.Kind.DayLength, spec.Natural, spec.EarliestOn, spec.LatestOff}
+	key := lightingKey{spec.Kind.DayLength, spec.MinDuration.D(), spec.Natural, spec.EarliestOn, spec.LatestOff}
 	if w.lamp != nil && w.lamp.key == key {
 		return w.lamp
 	}
@@ -233,14 +298,9 @@ func (w *entryWriter) lightingText(spec config.KindSpec) *lightingText {
 		lt.closing = "Civil twilight is counted as natural light (common practice: twilight still drives photoperiod responses).\n"
 	}
 	lt.closing += "Computed for planning from the site's coordinates; follow the lighting programme of the crop or herd."
-	var limits []string
-	if spec.EarliestOn != "" {
-		limits = append(limits, "lamps on no earlier than "+spec.EarliestOn)
-	}
-	if spec.LatestOff != "" {
-		limits = append(limits, "off no later than "+spec.LatestOff)
-	}
-	lt.clipped = "Clipped (" + strings.Join(limits, ", ") + "): the target of " + target + " is not reached today.\n"
+	lt.limits = limitsOf(spec).text
+	lt.clipped = "Clipped (" + lt.limits + "): the target of " + target + " is not reached today.\n"
+	lt.minimum = amount(spec.MinDuration.D())
 	w.lamp = lt
 	return lt
 }
@@ -270,16 +330,45 @@ func (lt *lightingText) appendDescription(dst []byte, s *siteInfo, e Event) ([]b
 	b = appendClock(append(b, ", off at "...), e.End, loc)
 	b = append(appendHM(append(b, " ("...), e.Lamp), ").\n"...)
 	b = append(appendHM(append(b, lt.natural...), e.DayLength), lt.site...)
-	if e.Short {
+	other := partMorning // the other period of lamps: both
+	if e.Part == partMorning {
+		other = partEvening
+	}
+	switch {
+	case e.MadeUp > 0 && e.MadeUpWhy == "minimum":
+		b = append(appendHM(append(b, "All of the shortfall in one period: the "...), e.MadeUp), " "...)
+		b = append(append(append(append(b, other...), " period would be under the minimum of "...), lt.minimum...), ".\n"...)
+	case e.MadeUp > 0:
+		b = appendHM(b, e.MadeUp)
+		b = append(append(append(b, " longer than half the shortfall, to make up for the "...), other...), " lamps, which are clipped ("...)
+		b = append(append(b, lt.limits...), ").\n"...)
+	}
+	switch {
+	case e.Clipped && e.Short:
 		b = append(b, lt.clipped...)
+	case e.Clipped:
+		b = append(append(append(append(b, "Clipped ("...), lt.limits...), "); the "...), other...)
+		b = append(append(append(b, " lamps make up the difference: the target of "...), lt.target...), " is reached.\n"...)
+	case e.Short:
+		b = append(append(append(b, "The target of "...), lt.target...), " is not reached today.\n"...)
 	}
 	return append(b, lt.closing...), string(t)
 }
 
 // describeLightingNote gives the note at the start of a stretch of dates
-// that need no lamps.
+// that need no lamps, or of a date that needs lamps none of which are
+// scheduled.
 func describeLightingNote(s *siteInfo, n Note, last time.Time) (string, string) {
 	target := amount(n.Kind.DayLength)
+	if n.Lamp > 0 {
+		need := hm(n.Lamp)
+		if n.Lamp < 30*time.Second {
+			need = "less than 1 min"
+		}
+		title := "Lamps not scheduled: " + need + " needed, " + n.Why
+		return title, title + ".\nThe target of " + target + " is not reached on " + n.Date.Format("Monday 2 January 2006") +
+			" at " + s.where + " (natural day " + hm(n.DayLength) + ")."
+	}
 	if n.Until.IsZero() {
 		title := fmt.Sprintf("No lamps needed through %s: the natural day is ≥ %s", last.Format("2 Jan"), target)
 		return title, fmt.Sprintf("%s at %s, from %s to the end of this calendar (%s).", title, s.where,

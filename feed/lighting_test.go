@@ -286,3 +286,121 @@ func TestLightingDurationsOneFormat(t *testing.T) {
 		t.Error("no duration with fewer than 10 minutes in the window: the check did not run")
 	}
 }
+
+// ithacaDay returns the USNO table's sunrise and sunset for Ithaca, NY on
+// d (see TestLightingAgainstUSNO), in the table's zone.
+func ithacaDay(t *testing.T, d string) (rise, set time.Time, s *config.Site) {
+	t.Helper()
+	zone := time.FixedZone("UTC-04:00", -4*3600)
+	s = &config.Site{ID: "ithaca", Name: "Ithaca", Latitude: 42.45, Longitude: -76.5, TimeZone: config.Zone{Location: zone}}
+	for _, day := range usnoDays(t, "Ithaca", zone) {
+		if day.date == d {
+			rise, set = day.times["sunrise"], day.times["sunset"]
+		}
+	}
+	if rise.IsZero() || set.IsZero() {
+		t.Fatalf("no USNO sunrise and sunset for Ithaca on %s", d)
+	}
+	return rise, set, s
+}
+
+// TestLightingBothMakesUp checks lamps: both under latest_off and
+// earliest_on against the USNO table for Ithaca, NY, 1 January 2015
+// (sunrise 08:36, sunset 17:44 in UTC−4, rows sun-0001 and sun-0002 of
+// testdata/reference/sun-times.csv): an evening cut by latest_off is made
+// up in the morning, so the date still gets the whole shortfall and both
+// entries say the target is reached; when the morning is cut too, both say
+// it is not. Tolerance 150 s: two table times, each rounded to the minute.
+func TestLightingBothMakesUp(t *testing.T) {
+	rise, set, s := ithacaDay(t, "2015-01-01")
+	zone := s.TimeZone.Location
+	sk := sky(t, "2015-01-01", "2015-12-31")
+	const tol = 150 * time.Second
+	short := 16*time.Hour - set.Sub(rise)
+	run := func(on, off string) []Entry {
+		spec := lightingSpec(t, "lighting:16h", func(ks *config.KindSpec) {
+			ks.Lamps, ks.EarliestOn, ks.LatestOff = config.LampsBoth, on, off
+		})
+		es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date("2015-01-01"), date("2015-01-01"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(es) != 2 || es[0].Facts.Part != partMorning || es[1].Facts.Part != partEvening {
+			t.Fatalf("on %s, off %s: %d entries, want a morning and an evening period", on, off, len(es))
+		}
+		return es
+	}
+	// evening off an hour before the end of its half: the morning starts
+	// an hour earlier than its half would
+	offAt := set.Add(short/2 - time.Hour).Truncate(time.Minute)
+	es := run("", offAt.Format("15:04"))
+	m, e := es[0], es[1]
+	if !e.End.Equal(offAt) || !near(m.Start, rise.Add(-(short-offAt.Sub(set))), tol) || !near(m.End, rise, tol) {
+		t.Errorf("lamps %s–%s and %s–%s, want morning from %s and evening off at %s", m.Start.In(zone), m.End.In(zone),
+			e.Start.In(zone), e.End.In(zone), rise.Add(-(short - offAt.Sub(set))).Format("15:04"), offAt.Format("15:04"))
+	}
+	if got := m.Facts.Lamp + e.Facts.Lamp; !near(time.Time{}.Add(got), time.Time{}.Add(short), tol) {
+		t.Errorf("lamps %s in all, want the shortfall %s", got, short)
+	}
+	for _, x := range es {
+		if x.Facts.Short || !strings.Contains(x.Title, "to reach 16 h") {
+			t.Errorf("%s: %q, short %v: the morning makes up the evening, the target is reached", x.Facts.Part, x.Title, x.Facts.Short)
+		}
+	}
+	if !strings.Contains(e.Description, "the morning lamps make up the difference: the target of 16 h is reached") ||
+		!strings.Contains(m.Description, "longer than half the shortfall, to make up for the evening lamps, which are clipped") {
+		t.Errorf("descriptions do not say who makes up what:\n%s\n%s", m.Description, e.Description)
+	}
+	// the morning cannot start before 30 min after its half would: 30 min
+	// and the hour the evening lost are missing
+	onAt := rise.Add(-short/2 + 30*time.Minute).Truncate(time.Minute).Add(time.Minute)
+	es = run(onAt.Format("15:04"), offAt.Format("15:04"))
+	m, e = es[0], es[1]
+	if !m.Start.Equal(onAt) || !e.End.Equal(offAt) {
+		t.Errorf("lamps from %s and off at %s, want %s and %s", m.Start.In(zone), e.End.In(zone), onAt.Format("15:04"), offAt.Format("15:04"))
+	}
+	for _, x := range es {
+		if !x.Facts.Short || !strings.Contains(x.Title, "16 h not reached") || !strings.Contains(x.Description, "not reached today") {
+			t.Errorf("%s: %q, short %v: both periods are cut, the target is not reached", x.Facts.Part, x.Title, x.Facts.Short)
+		}
+	}
+}
+
+// TestLightingMinimum checks min_duration on lamp periods against the USNO
+// table for Ithaca, NY, 1 January 2015 (rows sun-0001 and sun-0002:
+// sunrise 08:36, sunset 17:44, a day of 9 h 08 min): a target 8 min above the day needs about 8 min of
+// lamps, under a 15 min minimum, so the date gets a note saying so instead
+// of silence; a target 20 min above it with lamps: both would give two
+// 10 min periods, so the date gets one evening period of the whole 20 min.
+// Tolerance 2 min (two table times rounded to the minute).
+func TestLightingMinimum(t *testing.T) {
+	rise, set, s := ithacaDay(t, "2015-01-01")
+	sk := sky(t, "2015-01-01", "2015-12-31")
+	day := set.Sub(rise)
+	run := func(extra time.Duration, lamps string) []Entry {
+		spec := config.KindSpec{Kind: config.Kind{Name: config.KindLighting, DayLength: day + extra},
+			Lamps: lamps, MinDuration: config.Duration(15 * time.Minute)}
+		es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date("2015-01-01"), date("2015-01-01"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		return es
+	}
+	es := run(8*time.Minute, "")
+	if len(es) != 1 || !es[0].Facts.Note || !es[0].Facts.Short || !es[0].AllDay {
+		t.Fatalf("%+v, want one all-day note", es)
+	}
+	title := regexp.MustCompile(`^Lamps not scheduled: (\d+) min needed, under the 15 min minimum$`).FindStringSubmatch(es[0].Title)
+	if title == nil || !strings.Contains(es[0].Description, "The target of 9 h 16 min is not reached") {
+		t.Fatalf("note %q: %q", es[0].Title, es[0].Description)
+	}
+	if n := title[1]; n < "6" || n > "9" || len(n) != 1 {
+		t.Errorf("note says %s min needed, want 8 ± 2", n)
+	}
+	es = run(20*time.Minute, config.LampsBoth)
+	if len(es) != 1 || es[0].Facts.Part != partEvening || es[0].Facts.Short ||
+		!near(es[0].Start.Add(es[0].Facts.Lamp), es[0].Start.Add(20*time.Minute), 2*time.Minute) ||
+		!strings.Contains(es[0].Description, "All of the shortfall in one period") {
+		t.Fatalf("%+v, want one evening period of about 20 min", es)
+	}
+}

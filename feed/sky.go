@@ -42,7 +42,10 @@ type Event struct {
 	Illuminated  float64       // Moon events: illuminated fraction 0..1
 	Waxing       bool          // Moon events: the Moon is waxing
 	Lamp         time.Duration // lighting: length of the lamp period
-	Short        bool          // lighting: clipped by latest_off/earliest_on, the target is not reached
+	Short        bool          // lighting: the date's lamps fall short of the target (clipped by latest_off/earliest_on)
+	Clipped      bool          // lighting: this period was cut by latest_off/earliest_on
+	MadeUp       time.Duration // lighting, lamps both: how much longer than its half this period is
+	MadeUpWhy    string        // "clipped": the other period was cut; "minimum": it was under min_duration
 	// Eclipses: the local circumstances (one of the two is set).
 	Solar *astro.LocalSolarEclipse
 	Lunar *astro.LocalLunarEclipse
@@ -61,6 +64,11 @@ type Note struct {
 	// Until is, for a lighting note (no lamps needed), the first date on
 	// which lamps are needed again; zero when that is after the last date.
 	Until time.Time
+	// Lamp is, for a lighting note on a date that needs lamps none of which
+	// are scheduled, the lamp time needed; Why says why none are ("under
+	// the 15 min minimum").
+	Lamp time.Duration
+	Why  string
 	// For a photoperiod threshold that no date of the window crosses (one
 	// note on the first date, AlwaysBelow: never reached, AlwaysAbove:
 	// never fallen below): the longest (or shortest) day length of the

@@ -176,6 +176,9 @@ func toJSONEntry(cal *feed.Calendar, e *feed.Entry) jsonEntry {
 		j.State = stateName(f.State)
 		if strings.HasPrefix(e.Kind, config.KindLighting+":") {
 			j.State = "no-lamps-needed"
+			if f.Short { // lamps needed, none scheduled
+				j.State = "lamps-not-scheduled"
+			}
 		}
 		if !f.Until.IsZero() {
 			j.Until = f.Until.Format(time.DateOnly)
@@ -286,6 +289,9 @@ func toJSONNote(n feed.Note) jsonNote {
 	}
 	if n.Kind.Name == config.KindLighting {
 		j.State = "no-lamps-needed"
+		if n.Lamp > 0 { // lamps needed, none scheduled
+			j.State = "lamps-not-scheduled"
+		}
 		if !n.Until.IsZero() {
 			j.Until = n.Until.Format(time.DateOnly)
 		}

@@ -2,6 +2,7 @@ package main
 
 import (
 	"encoding/json"
+	"strings"
 	"testing"
 	"time"
 )
@@ -35,4 +36,49 @@ func TestLightingNoLampsNote(t *testing.T) {
 	}
 	near("date", doc.Notes[0].Date, "2027-06-11")
 	near("until", doc.Notes[0].Until, "2027-07-02")
+}
+
+// A date whose few minutes of lamps fall under min_duration is not silent:
+// its entry is a note with the state lamps-not-scheduled and
+// target_not_reached. At 48.2° N the natural day comes within 15 min of
+// 16 h in early June (USNO Duration of Daylight table for 48° N, a longest
+// day of about 16 h 05 min; value from memory).
+func TestLightingNotScheduledJSON(t *testing.T) {
+	cfg := `sites:
+  - {id: lindenrain, name: Lindenrain, latitude: 48.2, longitude: 16.4, timezone: Europe/Vienna}
+feeds:
+  - id: lamps
+    site: lindenrain
+    kinds:
+      - {kind: "lighting:16h", min_duration: 15m}
+`
+	code, out, errOut := runStdin(t, cfg, "events", "--config", "-", "--feed", "lamps", "--from", "2027-05-20", "--to", "2027-06-20", "--format", "json")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	var doc struct {
+		Entries []struct {
+			Title, State string
+			Lamp         *float64 `json:"lamp_s"`
+			Short        bool     `json:"target_not_reached"`
+		}
+	}
+	if err := json.Unmarshal([]byte(out), &doc); err != nil {
+		t.Fatal(err)
+	}
+	notes := 0
+	for _, e := range doc.Entries {
+		switch {
+		case e.State == "lamps-not-scheduled":
+			notes++
+			if !e.Short || !strings.HasPrefix(e.Title, "Lamps not scheduled: ") {
+				t.Errorf("note %+v, want target_not_reached and a title saying so", e)
+			}
+		case e.Lamp != nil && *e.Lamp < 900:
+			t.Errorf("%q: a lamp period under the 15 min minimum", e.Title)
+		}
+	}
+	if notes < 3 {
+		t.Errorf("%d lamps-not-scheduled notes, want one per date whose shortfall is under 15 min", notes)
+	}
 }

@@ -119,7 +119,7 @@ func chartsFor(cfg *config.Config, now time.Time, feeds *feed.Sky) func(context.
 			return nil, err
 		}
 		place := feed.PlaceOf(&site)
-		chart := &publish.SiteChart{}
+		chart := &publish.SiteChart{Location: site.TimeZone.Location}
 		if chart.Days, err = chartDays(sky, place, first, last); err != nil {
 			return nil, err
 		}

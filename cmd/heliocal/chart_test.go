@@ -39,6 +39,9 @@ feeds:
 		!last.Equal(time.Date(2024, 12, 31, 0, 0, 0, 0, time.UTC)) {
 		t.Errorf("chart from %v to %v, want 4 Dec 2023 to 31 Dec 2024", first, last)
 	}
+	if c.Location == nil || c.Location.String() != "America/New_York" {
+		t.Errorf("chart zone %v, want the site's (marks are dated on its local dates)", c.Location)
+	}
 	day := func(y int, m time.Month, d int) publish.ChartDay {
 		return c.Days[int(time.Date(y, m, d, 0, 0, 0, 0, time.UTC).Sub(c.Days[0].Date).Hours()/24)]
 	}

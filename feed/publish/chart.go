@@ -32,6 +32,9 @@ type SiteChart struct {
 	// Lamps are lamp periods and Dark the dark windows, each piece within
 	// one local date.
 	Lamps, Dark []ClockSpan
+	// Location is the site's time zone: Marks and Phases are drawn and
+	// dated on its local dates, as Days are. Nil means UTC.
+	Location *time.Location
 }
 
 // ChartDay is one local day of a SiteChart. Each duration is the time the
@@ -282,9 +285,9 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 		Step:       num(math.Max(dayStep(len(days)), 1)),
 		Months:     monthTicks(days),
 		Hours:      hourTicks(),
-		Marks:      markViews(c.Marks, first, last),
+		Marks:      markViews(c.Marks, c.Location, first, last),
 		Thresholds: thresholdViews(days, c.Levels),
-		Phases:     phaseViews(c.Phases, first, last),
+		Phases:     phaseViews(c.Phases, c.Location, first, last),
 		Today:      todayMark(c.Today, days),
 	}
 	ahead := days // the summary speaks of the year from today
@@ -303,6 +306,17 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 		v.Summary += "."
 	}
 	return v
+}
+
+// wallClock is the local clock reading of t in loc written as a UTC time,
+// the way the chart's dates are (a local date at 00:00 UTC): an equinox at
+// 20:25 UTC on 20 March falls on 21 March in Auckland, and is drawn there.
+func wallClock(t time.Time, loc *time.Location) time.Time {
+	if loc == nil {
+		return t
+	}
+	l := t.In(loc)
+	return time.Date(l.Year(), l.Month(), l.Day(), l.Hour(), l.Minute(), l.Second(), l.Nanosecond(), time.UTC)
 }
 
 // chartTitle names the site and the year (or the dates) the chart covers.
@@ -382,14 +396,15 @@ func hourTicks() []tickView {
 // lines. Each label stays inside the chart, on the first of two rows where
 // it does not run into the previous label; with no room, the line stays and
 // the label is only in its tooltip and the caption.
-func markViews(marks []Mark, first, last time.Time) []markView {
+func markViews(marks []Mark, loc *time.Location, first, last time.Time) []markView {
 	span := last.Add(24 * time.Hour).Sub(first)
 	marks = append([]Mark(nil), marks...)
 	sort.SliceStable(marks, func(i, j int) bool { return marks[i].At.Before(marks[j].At) })
 	var views []markView
 	rowEnd := [2]float64{math.Inf(-1), math.Inf(-1)}
 	for _, m := range marks {
-		off := m.At.Sub(first)
+		at := wallClock(m.At, loc)
+		off := at.Sub(first)
 		if off < 0 || off >= span {
 			continue
 		}
@@ -403,7 +418,7 @@ func markViews(marks []Mark, first, last time.Time) []markView {
 			anchor, left = "start", x
 		}
 		mv := markView{X: num(x), Y1: num(plotTop), Y2: num(plotBottom), Anchor: anchor, Label: m.Label,
-			Date: chartDate(m.At.UTC(), first, last)}
+			Date: chartDate(at.UTC(), first, last)}
 		for r := range rowEnd {
 			if left > rowEnd[r]+6 {
 				rowEnd[r] = left + w
@@ -459,16 +474,17 @@ func thresholdViews(days []ChartDay, levels []Level) []thresholdView {
 
 // phaseViews places the new and full Moons within first..last on the row
 // above the plot.
-func phaseViews(phases []Phase, first, last time.Time) []phaseView {
+func phaseViews(phases []Phase, loc *time.Location, first, last time.Time) []phaseView {
 	span := last.Add(24 * time.Hour).Sub(first)
 	var views []phaseView
 	for _, p := range phases {
-		off := p.At.Sub(first)
+		at := wallClock(p.At, loc)
+		off := at.Sub(first)
 		if off < 0 || off >= span {
 			continue
 		}
 		x := plotLeft + float64(plotW)*off.Hours()/span.Hours()
-		views = append(views, phaseView{X: num(x), Y: num(phaseY), Full: p.Full, Date: chartDate(p.At.UTC(), first, last)})
+		views = append(views, phaseView{X: num(x), Y: num(phaseY), Full: p.Full, Date: chartDate(at.UTC(), first, last)})
 	}
 	return views
 }

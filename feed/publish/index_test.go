@@ -495,3 +495,30 @@ func TestChartSummaryFromToday(t *testing.T) {
 		t.Errorf("summary %q: want the days from 13 Jan only", v.Summary)
 	}
 }
+
+// A mark is drawn and dated on the site's local date, as the chart's days
+// are: the December solstice of 2026, 21 December 20:50 UTC (USNO, Earth's
+// Seasons, testdata/reference/seasons.csv december-solstice-2026), falls on
+// 22 December in Auckland (UTC+13 in summer).
+func TestChartMarkOnLocalDate(t *testing.T) {
+	auckland, err := time.LoadLocation("Pacific/Auckland")
+	if err != nil {
+		t.Fatal(err)
+	}
+	first := time.Date(2026, 12, 1, 0, 0, 0, 0, time.UTC)
+	var days []ChartDay
+	for i := range 62 {
+		days = append(days, ChartDay{Date: first.AddDate(0, 0, i), Daylight: 14 * time.Hour})
+	}
+	solstice := time.Date(2026, 12, 21, 20, 50, 0, 0, time.UTC)
+	c := &SiteChart{Days: days, Location: auckland, Marks: []Mark{{At: solstice, Label: "Dec solstice"}}, Phases: []Phase{{At: solstice, Full: true}}}
+	v := chart("orchard", "Orchard", c)
+	if len(v.Marks) != 1 || len(v.Phases) != 1 {
+		t.Fatalf("marks %v, phases %v", v.Marks, v.Phases)
+	}
+	step := dayStep(len(days))
+	x, _ := strconv.ParseFloat(v.Marks[0].X, 64)
+	if col := int((x - plotLeft) / step); v.Marks[0].Date != "22 Dec" || col != 21 || v.Phases[0].Date != "22 Dec" || v.Phases[0].X != v.Marks[0].X {
+		t.Errorf("solstice mark dated %q in column %d (phase %q at %s); want 22 Dec, column 21 (the 22nd)", v.Marks[0].Date, col, v.Phases[0].Date, v.Phases[0].X)
+	}
+}

@@ -27,3 +27,18 @@ func TestSiteSuggestionOnlyValidIDs(t *testing.T) {
 		t.Errorf("the invalid id itself is not reported: %v", err)
 	}
 }
+
+// An id with accented letters is refused (ids become file names and URLs)
+// with a suggestion that keeps the words: "viña-aurora" suggests
+// "vina-aurora", not "vi-a-aurora".
+func TestIDSuggestionKeepsAccentedWords(t *testing.T) {
+	for in, want := range map[string]string{"viña-aurora": "vina-aurora", "Güira Ñandú": "guira-nandu", "Skarvlia Øst": "skarvlia-ost", "North Field #2": "north-field-2"} {
+		if got := slug(in); got != want {
+			t.Errorf("slug(%q) = %q, want %q", in, got, want)
+		}
+	}
+	_, err := Parse(strings.NewReader("sites:\n  - {id: viña-aurora, latitude: -35.42, longitude: -71.65, timezone: America/Santiago}\n"), "yaml")
+	if err == nil || !strings.Contains(err.Error(), `"vina-aurora"`) {
+		t.Errorf("error %v, want the suggestion \"vina-aurora\"", err)
+	}
+}

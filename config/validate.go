@@ -420,11 +420,26 @@ func checkID(ps *problems, path, id, what string) {
 	}
 }
 
-// slug turns "North Field #2" into "north-field-2".
+// latinFold writes common accented Latin letters without their accents, so
+// that a suggested id keeps the word: "viña" is "vina", not "vi-a".
+var latinFold = strings.NewReplacer(
+	"à", "a", "á", "a", "â", "a", "ã", "a", "ä", "a", "å", "a", "ā", "a", "ą", "a", "æ", "ae",
+	"ç", "c", "ć", "c", "č", "c", "ď", "d", "ð", "d", "đ", "d",
+	"è", "e", "é", "e", "ê", "e", "ë", "e", "ē", "e", "ę", "e", "ě", "e",
+	"ğ", "g", "ì", "i", "í", "i", "î", "i", "ï", "i", "ī", "i", "ı", "i",
+	"ł", "l", "ľ", "l", "ñ", "n", "ń", "n", "ň", "n",
+	"ò", "o", "ó", "o", "ô", "o", "õ", "o", "ö", "o", "ø", "o", "ō", "o", "ő", "o", "œ", "oe",
+	"ř", "r", "ś", "s", "š", "s", "ş", "s", "ß", "ss", "ť", "t", "ţ", "t", "þ", "th",
+	"ù", "u", "ú", "u", "û", "u", "ü", "u", "ū", "u", "ů", "u", "ű", "u",
+	"ý", "y", "ÿ", "y", "ź", "z", "ż", "z", "ž", "z",
+)
+
+// slug turns "North Field #2" into "north-field-2" and "Viña Alta" into
+// "vina-alta".
 func slug(s string) string {
 	var b strings.Builder
 	dash := false
-	for _, r := range strings.ToLower(s) {
+	for _, r := range latinFold.Replace(strings.ToLower(s)) {
 		if (r >= 'a' && r <= 'z') || (r >= '0' && r <= '9') {
 			if dash && b.Len() > 0 {
 				b.WriteByte('-')

@@ -191,6 +191,12 @@ type previewEntry struct {
 	End   string `json:"end,omitempty"`  // local HH:MM of a span's end
 	// EndDate is the local date of the end when it is not the entry's date.
 	EndDate string `json:"end_date,omitempty"`
+	// StartDate is the local date of the start when it is not the entry's
+	// date: a dark window after midnight belongs to the night before.
+	StartDate string `json:"start_date,omitempty"`
+	// When is Time and End as shown, each with its weekday when it falls
+	// on another date than the entry's: "23:55–Sun 06:25", "Mon 01:59–06:24".
+	When string `json:"when,omitempty"`
 }
 
 type previewDay struct {
@@ -342,19 +348,35 @@ func days(cal *feed.Calendar, q AdhocQuery) []previewDay {
 		}
 		pe := previewEntry{Kind: e.Kind, Title: e.Title}
 		if !e.AllDay {
+			row := out[i].Date
 			start := feed.ToMinute(e.Start).In(loc) // shown to the minute: the one rounding rule
-			pe.Time = start.Format("15:04")
+			pe.Time, pe.When = start.Format("15:04"), clockOn(start, row)
+			if d := start.Format(time.DateOnly); d != row {
+				pe.StartDate = d
+			}
 			if !e.End.IsZero() {
 				end := feed.ToMinute(e.End).In(loc)
 				pe.End = end.Format("15:04")
 				if end.Format(time.DateOnly) != start.Format(time.DateOnly) {
 					pe.EndDate = end.Format(time.DateOnly)
+					pe.When += "–" + clockOn(end, row)
+				} else {
+					pe.When += "–" + pe.End
 				}
 			}
 		}
 		out[i].Entries = append(out[i].Entries, pe)
 	}
 	return out
+}
+
+// clockOn writes the local time t as "15:04", led by its weekday ("Mon
+// 01:59") when it falls on another date than row (YYYY-MM-DD).
+func clockOn(t time.Time, row string) string {
+	if t.Format(time.DateOnly) != row {
+		return t.Format("Mon 15:04")
+	}
+	return t.Format("15:04")
 }
 
 // qrDataURL draws text as a QR code (error correction M, 4-module quiet

@@ -151,3 +151,35 @@ func TestPageSitesAndCaution(t *testing.T) {
 		t.Errorf("the page lists a feed not served, or shows the builder it should not")
 	}
 }
+
+// A time on another date than its row (a dark window after midnight, which
+// belongs to the night before, or its end the next morning) is shown with
+// its weekday in the preview and the table page, as `heliocal events` marks
+// it "+1 day". Havana, 13–15 March 2027 (the clocks skip 00:00–01:00 on
+// the 14th): a window 23:55 CST to 06:25 CDT, and one 01:59–06:24 CDT on the
+// 15th that belongs to the night of the 14th.
+func TestPreviewTimesOnAnotherDate(t *testing.T) {
+	havana, err := time.LoadLocation("America/Havana")
+	if err != nil {
+		t.Fatal(err)
+	}
+	d := func(s string) time.Time { t, _ := time.Parse(time.DateOnly, s); return t }
+	u := func(s string) time.Time { t, _ := time.Parse(time.RFC3339, s); return t }
+	cal := &feed.Calendar{Entries: []feed.Entry{
+		{Kind: "dark-window", Title: "night 13–14", Date: d("2027-03-13"), Start: u("2027-03-14T04:55:00Z"), End: u("2027-03-14T10:25:00Z")},
+		{Kind: "dark-window", Title: "night 14–15", Date: d("2027-03-14"), Start: u("2027-03-15T05:59:00Z"), End: u("2027-03-15T10:24:00Z")},
+		{Kind: "sunrise", Title: "Sunrise", Date: d("2027-03-15"), Start: u("2027-03-15T11:39:00Z")},
+	}}
+	got := days(cal, AdhocQuery{Start: d("2027-03-13"), Days: 3, Location: havana})
+	for i, want := range []struct{ when, startDate, endDate string }{
+		{"23:55–Sun 06:25", "", "2027-03-14"}, {"Mon 01:59–06:24", "2027-03-15", ""}, {"07:39", "", ""},
+	} {
+		if len(got[i].Entries) != 1 {
+			t.Fatalf("day %d: entries %+v", i, got[i].Entries)
+		}
+		e := got[i].Entries[0]
+		if e.When != want.when || e.StartDate != want.startDate || e.EndDate != want.endDate {
+			t.Errorf("%s: when %q, start_date %q, end_date %q; want %q, %q, %q", got[i].Date, e.When, e.StartDate, e.EndDate, want.when, want.startDate, want.endDate)
+		}
+	}
+}

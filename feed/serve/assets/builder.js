@@ -96,7 +96,7 @@ function render(res) {
       if (e.time) {
         const t = document.createElement("span");
         t.className = "t";
-        t.textContent = e.time + (e.end ? "–" + e.end : "");
+        t.textContent = e.when || e.time + (e.end ? "–" + e.end : "");
         li.appendChild(t);
         li.appendChild(document.createTextNode(" "));
       }

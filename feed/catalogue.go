@@ -174,7 +174,7 @@ func PlaceOf(s *config.Site) Place {
 // UID. It stops with ctx's error when ctx is done.
 func (sky *Sky) Entries(ctx context.Context, s *config.Site, feedID string, specs []config.KindSpec, first, last time.Time) ([]Entry, error) {
 	col := &collector{ctx: ctx, sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
-	es, err := sky.entries(col, s, feedID, specs)
+	es, err := sky.entries(col, s, feedID, specs, 0)
 	if err != nil {
 		return nil, err
 	}
@@ -182,12 +182,13 @@ func (sky *Sky) Entries(ctx context.Context, s *config.Site, feedID string, spec
 }
 
 // entries is Entries, unsorted, on a collector for the feed's dates, which
-// may have computed some of the Sun's crossings already.
-func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []config.KindSpec) ([]Entry, error) {
+// may have computed some of the Sun's crossings already, with room for
+// room more entries (a feed's plans).
+func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []config.KindSpec, room int) ([]Entry, error) {
 	last := col.last
 	days := int(col.last.Sub(col.first).Hours()/24) + 1
 	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: make(map[string]int, days*len(specs)), noted: map[string]bool{}, last: civil(last)}
-	w.out = make([]Entry, 0, days*(len(specs)+1))
+	w.out = make([]Entry, 0, days*(len(specs)+1)+room)
 	w.text = make([]byte, 0, days*textPerEntry)
 	if err := col.prepare(altitudes(col.p.Observer, specs)...); err != nil {
 		return nil, err

@@ -63,7 +63,7 @@ type planDate struct {
 func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed, first, last time.Time) ([]Entry, error) {
 	col := &collector{ctx: ctx, sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
 	if len(f.Plans) == 0 {
-		es, err := sky.entries(col, s, f.ID, f.Kinds)
+		es, err := sky.entries(col, s, f.ID, f.Kinds, 0)
 		if err != nil {
 			return nil, err
 		}
@@ -73,17 +73,21 @@ func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed,
 	if err != nil {
 		return nil, err
 	}
+	pd, err := sky.allPlanDates(col, parsed)
+	if err != nil {
+		return nil, err
+	}
 	// the kinds' crossings in one pass; the plans take theirs from it, or
-	// find them on their own dates only (planEntries)
-	es, err := sky.entries(col, s, f.ID, f.Kinds)
+	// find them on their own dates only (planEntries), and append their
+	// entries to the kinds' (room made for them)
+	es, err := sky.entries(col, s, f.ID, f.Kinds, pd.total)
 	if err != nil {
 		return nil, err
 	}
-	pe, err := sky.planEntries(col, s, f.ID, parsed, kinds)
-	if err != nil {
+	if es, err = sky.planEntries(col, s, f.ID, parsed, kinds, pd, es); err != nil {
 		return nil, err
 	}
-	return sortEntries(append(es, pe...)), nil
+	return sortEntries(es), nil
 }
 
 // PlanEntries computes the entries of a feed's plans on the local dates
@@ -95,7 +99,11 @@ func (sky *Sky) PlanEntries(ctx context.Context, s *config.Site, feedID string, 
 		return nil, err
 	}
 	col := &collector{ctx: ctx, sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
-	es, err := sky.planEntries(col, s, feedID, parsed, kinds)
+	pd, err := sky.allPlanDates(col, parsed)
+	if err != nil {
+		return nil, err
+	}
+	es, err := sky.planEntries(col, s, feedID, parsed, kinds, pd, make([]Entry, 0, pd.total))
 	if err != nil {
 		return nil, err
 	}
@@ -121,38 +129,50 @@ func parsePlans(plans []config.Plan) ([]*plan, []config.KindSpec, error) {
 	return parsed, kinds, nil
 }
 
-// planEntries writes the plans' entries for the collector's dates, unsorted.
-// The dates come first: a time of the Sun that the feed's kinds did not
-// already need is then found on the plans' dates only, unless they are so
-// many that one pass over the window costs less.
-func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parsed []*plan, kinds []config.KindSpec) ([]Entry, error) {
-	first, last := col.first, col.last
-	col.spec, col.maxLit = config.KindSpec{}, 0
-	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: map[string]int{}, noted: map[string]bool{}, last: last}
-	dates := make([][]planDate, len(parsed))
-	uses := map[config.Kind]int{} // how many dates look up each kind's time
-	total := 0
+// planDates are the dates of a feed's plans within its window, by plan,
+// with how many dates look up each kind's time and how many there are.
+type planDates struct {
+	dates [][]planDate
+	uses  map[config.Kind]int
+	total int
+}
+
+// allPlanDates lists the dates of each plan that its filters keep.
+func (sky *Sky) allPlanDates(col *collector, parsed []*plan) (planDates, error) {
+	pd := planDates{dates: make([][]planDate, len(parsed)), uses: map[config.Kind]int{}}
 	for i, pl := range parsed {
-		ds, err := sky.planDates(col.ctx, col.p, pl.rule, first, last)
+		ds, err := sky.planDates(col.ctx, col.p, pl.rule, col.first, col.last)
 		if err != nil {
-			return nil, fmt.Errorf("plan %q: %w", pl.cfg.Title, err)
+			return pd, fmt.Errorf("plan %q: %w", pl.cfg.Title, err)
 		}
 		n := 0
-		for _, pd := range ds {
-			if pl.filter.Allows(pd.date) {
-				ds[n] = pd
+		for _, d := range ds {
+			if pl.filter.Allows(d.date) {
+				ds[n] = d
 				n++
 			}
 		}
-		dates[i] = ds[:n]
-		total += n
+		pd.dates[i] = ds[:n]
+		pd.total += n
 		if pl.start != nil && !pl.start.IsClock {
-			uses[pl.start.Event] += n
+			pd.uses[pl.start.Event] += n
 		}
 		if pl.end != nil && !pl.end.IsClock {
-			uses[pl.end.Event] += 2 * n // the date, and the next one when the end comes first
+			pd.uses[pl.end.Event] += 2 * n // the date, and the next one when the end comes first
 		}
 	}
+	return pd, nil
+}
+
+// planEntries appends to out the plans' entries on their dates pd,
+// unsorted. A time of the Sun that the feed's kinds did not already need is
+// found on the plans' dates only, unless they are so many that one pass
+// over the window costs less.
+func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parsed []*plan, kinds []config.KindSpec, pd planDates, out []Entry) ([]Entry, error) {
+	last := col.last
+	col.spec, col.maxLit = config.KindSpec{}, 0
+	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: map[string]int{}, noted: map[string]bool{}, last: last, out: out}
+	dates, uses := pd.dates, pd.uses
 	// the times of every kind the plans start or end at; an end may be on
 	// the day after the last date
 	next := &collector{ctx: col.ctx, sky: sky, p: col.p, first: last.AddDate(0, 0, 1), last: last.AddDate(0, 0, 1)}
@@ -173,7 +193,6 @@ func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parse
 		}
 		times[ks.Kind] = kt
 	}
-	w.out = make([]Entry, 0, total)
 	for i, pl := range parsed {
 		w.alarm = pl.alarm
 		pt := newPlanText(pl, w.site)

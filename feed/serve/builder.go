@@ -2,6 +2,7 @@ package serve
 
 import (
 	"bytes"
+	"cmp"
 	"context"
 	"embed"
 	"encoding/base64"
@@ -366,6 +367,22 @@ func days(cal *feed.Calendar, q AdhocQuery) []previewDay {
 			}
 		}
 		out[i].Entries = append(out[i].Entries, pe)
+	}
+	for _, d := range out {
+		// the all-day entries first and in one order every day (by kind,
+		// then title), the timed ones in the order of their times
+		slices.SortStableFunc(d.Entries, func(a, b previewEntry) int {
+			switch {
+			case (a.Time == "") != (b.Time == ""):
+				if a.Time == "" {
+					return -1
+				}
+				return 1
+			case a.Time != "":
+				return 0
+			}
+			return cmp.Or(strings.Compare(a.Kind, b.Kind), strings.Compare(a.Title, b.Title))
+		})
 	}
 	return out
 }

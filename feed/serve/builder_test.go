@@ -183,3 +183,24 @@ func TestPreviewTimesOnAnotherDate(t *testing.T) {
 		}
 	}
 }
+
+// The all-day entries of a row come first and in one order every day (by
+// kind), whatever order the calendar gave them in; timed ones keep theirs.
+func TestPreviewAllDayOrder(t *testing.T) {
+	d := time.Date(2027, 4, 19, 0, 0, 0, 0, time.UTC)
+	cal := &feed.Calendar{Entries: []feed.Entry{
+		{Kind: "sunrise", Title: "Midnight sun: the Sun does not set today", Date: d, Start: d, AllDay: true},
+		{Kind: "moonrise", Title: "Moonrise", Date: d, Start: d.Add(20 * time.Hour)},
+		{Kind: "daily-summary", Title: "Daylight 24 h 00 min", Date: d, Start: d, AllDay: true},
+		{Kind: "civil-dawn", Title: "No civil dusk or dawn tonight", Date: d, Start: d, AllDay: true},
+		{Kind: "moonset", Title: "Moonset", Date: d, Start: d.Add(21 * time.Hour)},
+	}}
+	got := days(cal, AdhocQuery{Start: d, Days: 1, Location: time.UTC})
+	var kinds []string
+	for _, e := range got[0].Entries {
+		kinds = append(kinds, e.Kind)
+	}
+	if want := "civil-dawn daily-summary sunrise moonrise moonset"; strings.Join(kinds, " ") != want {
+		t.Errorf("order %v, want %s", kinds, want)
+	}
+}

@@ -1,9 +1,12 @@
 package feed
 
 import (
+	"cmp"
 	"context"
 	"errors"
+	"math/rand/v2"
 	"runtime"
+	"slices"
 	"testing"
 	"time"
 
@@ -118,5 +121,35 @@ func TestEventChunksOrderAndStop(t *testing.T) {
 	})
 	if !errors.Is(err, context.Canceled) || n != 3 {
 		t.Errorf("cancelled: got %v after %d chunks", err, n)
+	}
+}
+
+// mergeRuns gives what a stable sort of the whole gives, for runs in order,
+// out of order, empty, and with ties within and across runs.
+func TestMergeRuns(t *testing.T) {
+	type item struct{ key, id int64 }
+	r := rand.New(rand.NewPCG(1, 2))
+	for trial := range 500 {
+		var xs []item
+		bounds := []int{0}
+		for run := range r.IntN(12) {
+			n := r.IntN(30)
+			k := int64(r.IntN(50))
+			for range n {
+				if trial%3 == 0 && run%2 == 1 {
+					k = int64(r.IntN(50)) // out of order
+				} else {
+					k += int64(r.IntN(3))
+				}
+				xs = append(xs, item{k, int64(len(xs))})
+			}
+			bounds = append(bounds, len(xs))
+		}
+		want := slices.Clone(xs)
+		slices.SortStableFunc(want, func(a, b item) int { return cmp.Compare(a.key, b.key) })
+		got := mergeRuns(slices.Clone(xs), bounds, nil, func(x *item) int64 { return x.key })
+		if !slices.Equal(got, want) {
+			t.Fatalf("runs %v of %v: merged %v, want %v", bounds, xs, got, want)
+		}
 	}
 }

@@ -243,44 +243,47 @@ func (s *Sky) eventsFor(ctx context.Context, p Place, specs []config.KindSpec, f
 // mergeRuns appends to out the items of the runs xs[bounds[i]:bounds[i+1]]
 // in the order of key: a stable sort of xs (ties keep the run order, then
 // the order within a run) that sorts only runs that are out of order and
-// then merges them.
+// then merges them. The keys are taken once and the items are moved once.
 func mergeRuns[T any](xs []T, bounds []int, out []T, key func(*T) int64) []T {
+	keys := make([]int64, len(xs))
+	for i := range xs {
+		keys[i] = key(&xs[i])
+	}
+	order := make([]int32, len(xs)) // item positions, each run in order of key
+	for i := range order {
+		order[i] = int32(i)
+	}
 	heads := make([]int, 0, len(bounds))
-	for i := 0; i+1 < len(bounds); i++ {
-		run := xs[bounds[i]:bounds[i+1]]
+	for r := 0; r+1 < len(bounds); r++ {
+		run := order[bounds[r]:bounds[r+1]]
 		for j := 1; j < len(run); j++ {
-			if key(&run[j]) < key(&run[j-1]) {
-				slices.SortStableFunc(run, func(a, b T) int { return cmp.Compare(key(&a), key(&b)) })
+			if keys[run[j]] < keys[run[j-1]] {
+				slices.SortStableFunc(run, func(a, b int32) int { return cmp.Compare(keys[a], keys[b]) })
 				break
 			}
 		}
 		if len(run) > 0 {
-			heads = append(heads, i)
+			heads = append(heads, r)
 		}
 	}
-	if len(heads) <= 1 {
-		return append(out, xs...)
-	}
-	pos := slices.Clone(bounds[:len(bounds)-1])
-	keys := make([]int64, len(heads)) // key of each head's next item
-	for j, r := range heads {
-		keys[j] = key(&xs[pos[r]])
-	}
 	out = slices.Grow(out, len(xs))
-	for len(heads) > 0 {
-		best := 0
+	pos := slices.Clone(bounds[:len(bounds)-1])
+	for len(heads) > 1 {
+		best, bk := 0, keys[order[pos[heads[0]]]]
 		for j := 1; j < len(heads); j++ {
-			if keys[j] < keys[best] {
-				best = j
+			if k := keys[order[pos[heads[j]]]]; k < bk {
+				best, bk = j, k
 			}
 		}
 		r := heads[best]
-		out = append(out, xs[pos[r]])
+		out = append(out, xs[order[pos[r]]])
 		if pos[r]++; pos[r] == bounds[r+1] {
 			heads = slices.Delete(heads, best, best+1)
-			keys = slices.Delete(keys, best, best+1)
-		} else {
-			keys[best] = key(&xs[pos[r]])
+		}
+	}
+	for _, r := range heads { // the last run left
+		for _, i := range order[pos[r]:bounds[r+1]] {
+			out = append(out, xs[i])
 		}
 	}
 	return out

@@ -10,6 +10,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"sync"
 
 	"heliocal/feed"
 )
@@ -242,7 +243,7 @@ func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, 
 		v.Sites = append(v.Sites, sv)
 	}
 	var b bytes.Buffer
-	if err := indexTemplate.Execute(&b, v); err != nil {
+	if err := indexTemplate().Execute(&b, v); err != nil {
 		return nil, fmt.Errorf("publish: index: %w", err)
 	}
 	return b.Bytes(), nil
@@ -251,7 +252,9 @@ func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, 
 // The page is plain HTML with inline CSS and SVG: no script, no external
 // asset. It is also well-formed XML (void elements closed, no named
 // entities), which keeps it easy to check and to post-process.
-var indexTemplate = template.Must(template.New("index").Parse(`<!DOCTYPE html>
+// indexTemplate is parsed on first use, not when any command starts.
+var indexTemplate = sync.OnceValue(func() *template.Template {
+	return template.Must(template.New("index").Parse(`<!DOCTYPE html>
 <html lang="en">
 <head>
 <meta charset="utf-8"/>
@@ -341,3 +344,4 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{
 </body>
 </html>
 `))
+})

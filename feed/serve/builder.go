@@ -16,6 +16,7 @@ import (
 	"slices"
 	"strconv"
 	"strings"
+	"sync"
 	"time"
 
 	"rsc.io/qr"
@@ -104,12 +105,16 @@ const contentSecurityPolicy = "default-src 'none'; script-src 'self'; style-src 
 //go:embed assets
 var assetFiles embed.FS
 
+// The page's templates and files are prepared on first use, not when any
+// command of the program starts.
 var (
-	pageTemplates = template.Must(template.New("").Funcs(template.FuncMap{
-		"webcal": func(u string) template.URL { return template.URL(webcal(u)) },
-		"legal":  func() string { return LegalCaution },
-	}).ParseFS(assetFiles, "assets/*.html"))
-	staticAssets = loadStatic()
+	pageTemplates = sync.OnceValue(func() *template.Template {
+		return template.Must(template.New("").Funcs(template.FuncMap{
+			"webcal": func(u string) template.URL { return template.URL(webcal(u)) },
+			"legal":  func() string { return LegalCaution },
+		}).ParseFS(assetFiles, "assets/*.html"))
+	})
+	staticAssets = sync.OnceValue(loadStatic)
 	hdrCSP       = hdr(contentSecurityPolicy)
 	hdrNoCache   = hdr("no-cache")
 )
@@ -138,14 +143,14 @@ func builderRoute(p string) (string, bool) {
 	switch {
 	case p == PreviewPath:
 		return routePreview, true
-	case p == TablePath || staticAssets[p] != nil:
+	case p == TablePath || staticAssets()[p] != nil:
 		return routePage, true
 	}
 	return "", false
 }
 
 func (s *Server) serveBuilder(w http.ResponseWriter, r *http.Request, route, p string) {
-	if a := staticAssets[p]; a != nil {
+	if a := staticAssets()[p]; a != nil {
 		h := w.Header()
 		h["Content-Type"] = a.contentType
 		h["Cache-Control"] = hdrNoCache
@@ -437,7 +442,7 @@ func htmlHeaders(w http.ResponseWriter) {
 
 func (s *Server) render(w http.ResponseWriter, r *http.Request, name string, data any) {
 	var buf bytes.Buffer
-	if err := pageTemplates.ExecuteTemplate(&buf, name, data); err != nil {
+	if err := pageTemplates().ExecuteTemplate(&buf, name, data); err != nil {
 		s.log.Error("page template failed", "page", name, "err", err)
 		plain(w, http.StatusInternalServerError, "internal error")
 		return

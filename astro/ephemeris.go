@@ -5,6 +5,9 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"runtime"
+	"sync"
+	"sync/atomic"
 	"time"
 )
 
@@ -145,6 +148,36 @@ func (o Observer) RiseSetAltitude() float64 {
 type Ephemeris struct {
 	coverage // queries allowed in [from, to]
 	sun      *track
+	sites    siteCache
+}
+
+// siteCache keeps the site of the last observer queried, so that the
+// queries of one observer after another (an azimuth per sunrise) prepare it
+// once. It is safe for concurrent use: a site is never changed once stored.
+type siteCache struct{ last atomic.Pointer[cachedSite] }
+
+type cachedSite struct {
+	o  Observer
+	st *site
+}
+
+// site returns o's site, prepared or kept; o must be valid.
+func (c *siteCache) site(o Observer) *site {
+	if p := c.last.Load(); p != nil && p.o == o {
+		return p.st
+	}
+	st := newSite(o)
+	c.last.Store(&cachedSite{o, st})
+	return st
+}
+
+// query is coverage.query with the observer's site kept for the next
+// query.
+func (e *Ephemeris) query(o Observer, from, to time.Time) (*site, error) {
+	if err := e.check(o, from, to); err != nil {
+		return nil, err
+	}
+	return e.sites.site(o), nil
 }
 
 // coverage is the span an ephemeris (the Sun's or the Moon's) answers
@@ -157,13 +190,18 @@ func (c coverage) Coverage() (from, to time.Time) { return c.from, c.to }
 // query checks the observer and the span [from, to] of a query and returns
 // the observer's site for the track search.
 func (c coverage) query(o Observer, from, to time.Time) (*site, error) {
-	if err := o.Validate(); err != nil {
-		return nil, err
-	}
-	if err := c.checkSpan(from, to); err != nil {
+	if err := c.check(o, from, to); err != nil {
 		return nil, err
 	}
 	return newSite(o), nil
+}
+
+// check checks the observer and the span [from, to] of a query.
+func (c coverage) check(o Observer, from, to time.Time) error {
+	if err := o.Validate(); err != nil {
+		return err
+	}
+	return c.checkSpan(from, to)
 }
 
 // checkSpan returns a *RangeError when from or to lies outside the coverage.
@@ -202,16 +240,32 @@ func NewEphemeris(from, to time.Time) (*Ephemeris, error) {
 	const earthRadiiPerAU = auKm / earthRadiusKm
 	end := start + float64(n-1)*secondsPerDay
 	series := newEarthSeries(epochOf(start).JDE-0.5, epochOf(end).JDE+0.5)
-	jdes := make([]float64, n)
-	for k := range jdes {
-		jdes[k] = epochOf(start + float64(k)*secondsPerDay).JDE
+	tr := allocTrack(start, secondsPerDay, n)
+	// The samples are taken in runs of whole blocks (daily starts its
+	// rotations afresh at each block, whichever run it is given), one run
+	// per core: the same numbers as in one run.
+	runs := min(runtime.GOMAXPROCS(0), (n+sunChebDays-1)/sunChebDays)
+	per := (n + runs - 1) / runs
+	per = (per + sunChebDays - 1) / sunChebDays * sunChebDays
+	var wg sync.WaitGroup
+	for k0 := 0; k0 < n; k0 += per {
+		k1 := min(k0+per, n)
+		wg.Go(func() {
+			es := make([]Epoch, k1-k0)
+			jdes := make([]float64, k1-k0)
+			for k := range es {
+				es[k] = epochOf(start + float64(k0+k)*secondsPerDay)
+				jdes[k] = es[k].JDE
+			}
+			Ls, Bs, Rs := series.daily(jdes)
+			tr.fill(k0, es, func(k int, e Epoch) (ra, dec, dist, eqEq float64) {
+				s := apparentSunFrom(e.JDE, Ls[k-k0], Bs[k-k0], Rs[k-k0])
+				return s.ra, s.dec, s.r * earthRadiiPerAU, s.dpsi * math.Cos(s.eps)
+			})
+		})
 	}
-	Ls, Bs, Rs := series.daily(jdes)
-	tr := newTrack(start, secondsPerDay, n, func(e Epoch) (ra, dec, dist, eqEq float64) {
-		k := int(math.Round((jdToUnix(e.JD) - start) / secondsPerDay))
-		s := apparentSunFrom(e.JDE, Ls[k], Bs[k], Rs[k])
-		return s.ra, s.dec, s.r * earthRadiiPerAU, s.dpsi * math.Cos(s.eps)
-	})
+	wg.Wait()
+	tr.finish()
 	return &Ephemeris{coverage: coverage{qa, qb}, sun: tr}, nil
 }
 
@@ -273,10 +327,15 @@ func (e *Ephemeris) SunCrossingsMany(o Observer, altitudes []float64, from, to t
 	st := newSite(o)
 	a, b := unixSeconds(from), unixSeconds(to)
 	ext := e.sun.extrema(st, a, b)
-	out := make([][]Crossing, len(altitudes))
-	var buf []crossing
+	sines := make([]float64, len(altitudes))
+	bufs := make([][]crossing, len(altitudes))
 	for i, h := range altitudes {
-		buf = e.sun.crossings(st, ext, math.Sin(h*deg2rad), a, b, buf[:0])
+		sines[i] = math.Sin(h * deg2rad)
+		bufs[i] = make([]crossing, 0, len(ext)/2+2)
+	}
+	e.sun.crossingsMany(st, ext, sines, a, b, bufs)
+	out := make([][]Crossing, len(altitudes))
+	for i, buf := range bufs {
 		cs := make([]Crossing, 0, len(buf))
 		for _, c := range buf {
 			t := timeFromUnix(c.t)

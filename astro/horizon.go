@@ -83,6 +83,20 @@ func leapCount(sec float64) float64 {
 // Earth radii; eqEq is the equation of the equinoxes for the apparent
 // sidereal time.
 func newTrack(start, step float64, n int, sample func(e Epoch) (ra, dec, dist, eqEq float64)) *track {
+	tr := allocTrack(start, step, n)
+	es := make([]Epoch, n)
+	for k := range es {
+		es[k] = epochOf(start + float64(k)*step)
+	}
+	tr.fill(0, es, func(_ int, e Epoch) (ra, dec, dist, eqEq float64) { return sample(e) })
+	tr.finish()
+	return tr
+}
+
+// allocTrack returns a track of n samples from start, step apart, to be
+// filled (fill, possibly by several goroutines over separate runs of
+// samples) and then finished.
+func allocTrack(start, step float64, n int) *track {
 	tr := &track{start: start, step: step, g: make([]float64, n), dec: make([]float64, n), dist: make([]float64, n)}
 	end := start + float64(n-1)*step
 	tr.leap0 = leapCount(start)
@@ -91,22 +105,34 @@ func newTrack(start, step float64, n int, sample func(e Epoch) (ra, dec, dist, e
 			tr.leaps = append(tr.leaps, l)
 		}
 	}
-	for k := range n {
-		sec := start + float64(k)*step
-		e := epochOf(sec)
-		ra, dec, dist, eqEq := sample(e)
+	return tr
+}
+
+// fill takes the samples k0, k0+1, … at the epochs es (those of
+// start + k·step): sample(k, es[k−k0]).
+func (tr *track) fill(k0 int, es []Epoch, sample func(k int, e Epoch) (ra, dec, dist, eqEq float64)) {
+	for i, e := range es {
+		k := k0 + i
+		sec := tr.start + float64(k)*tr.step
+		ra, dec, dist, eqEq := sample(k, e)
 		gast := meanSiderealRaw(e.JDUT1)*deg2rad + eqEq
-		g := gast - ra - siderealRate*(sec-start) - siderealRate*leapCount(sec)
-		if k > 0 {
-			g = tr.g[k-1] + math.Remainder(g-tr.g[k-1], 2*math.Pi)
-		}
-		tr.g[k], tr.dec[k], tr.dist[k] = g, dec, dist
+		tr.g[k] = gast - ra - siderealRate*(sec-tr.start) - siderealRate*leapCount(sec)
+		tr.dec[k], tr.dist[k] = dec, dist
+	}
+}
+
+// finish unwraps the hour angle's smooth part once every sample is in and
+// takes its mean rate.
+func (tr *track) finish() {
+	n := len(tr.g)
+	for k := 1; k < n; k++ {
+		tr.g[k] = tr.g[k-1] + math.Remainder(tr.g[k]-tr.g[k-1], 2*math.Pi)
 	}
 	tr.rate = siderealRate
 	if n > 1 {
-		tr.rate += (tr.g[n-1] - tr.g[0]) / (end - start)
+		end := tr.start + float64(n-1)*tr.step
+		tr.rate += (tr.g[n-1] - tr.g[0]) / (end - tr.start)
 	}
-	return tr
 }
 
 // coverage returns the span (Unix s) inside which the track interpolates.
@@ -356,23 +382,42 @@ type crossing struct {
 // [a, b) (Unix s), in order, using the extrema ext (from tr.extrema over a
 // span covering [a, b]).
 func (tr *track) crossings(st *site, ext []extremum, sinH0, a, b float64, out []crossing) []crossing {
+	outs := [1][]crossing{out}
+	tr.crossingsMany(st, ext, []float64{sinH0}, a, b, outs[:])
+	return outs[0]
+}
+
+// crossingsMany appends to outs[i] the crossings of the altitude whose sine
+// is sinH0s[i] in [a, b) (Unix s), in order, using the extrema ext (from
+// tr.extrema over a span covering [a, b]). It takes the intervals between
+// extrema one by one and solves every threshold crossed in each, so that
+// what the estimates share (the declination at the interval's middle) is
+// computed once per interval.
+func (tr *track) crossingsMany(st *site, ext []extremum, sinH0s []float64, a, b float64, outs [][]crossing) {
 	for i := 0; i+1 < len(ext); i++ {
 		e0, e1 := ext[i], ext[i+1]
 		if e1.t < a || e0.t >= b {
 			continue
 		}
-		f0, f1 := e0.sinH-sinH0, e1.sinH-sinH0
-		if !(f0 < 0 && f1 > 0) && !(f0 > 0 && f1 < 0) {
-			continue
-		}
-		rising := f1 > 0
-		g, slope := tr.estimate(st, sinH0, e0, e1, rising)
-		t := tr.solve(st, sinH0, e0.t, f0, e1.t, f1, g, slope)
-		if t >= a && t < b {
-			out = append(out, crossing{t: t, rising: rising})
+		var sd, cd float64
+		known := false
+		for h, sinH0 := range sinH0s {
+			f0, f1 := e0.sinH-sinH0, e1.sinH-sinH0
+			if !(f0 < 0 && f1 > 0) && !(f0 > 0 && f1 < 0) {
+				continue
+			}
+			if !known {
+				sd, cd = math.Sincos(tr.decAt(0.5 * (e0.t + e1.t)))
+				known = true
+			}
+			rising := f1 > 0
+			g, slope := tr.estimateFrom(st, sinH0, e0, e1, rising, sd, cd)
+			t := tr.solve(st, sinH0, e0.t, f0, e1.t, f1, g, slope)
+			if t >= a && t < b {
+				outs[h] = append(outs[h], crossing{t: t, rising: rising})
+			}
 		}
 	}
-	return out
 }
 
 // guess estimates a crossing time within (e0, e1) by the hour-angle
@@ -388,8 +433,14 @@ func (tr *track) guess(st *site, sinH0 float64, e0, e1 extremum, rising bool) fl
 // when the formula does not apply. (A second pass with the declination at
 // the estimate saves less than it costs: the solver's first step does it.)
 func (tr *track) estimate(st *site, sinH0 float64, e0, e1 extremum, rising bool) (g, slope float64) {
+	sd, cd := math.Sincos(tr.decAt(0.5 * (e0.t + e1.t)))
+	return tr.estimateFrom(st, sinH0, e0, e1, rising, sd, cd)
+}
+
+// estimateFrom is estimate with the sine and cosine of the declination at
+// the middle of the interval given.
+func (tr *track) estimateFrom(st *site, sinH0 float64, e0, e1 extremum, rising bool, sd, cd float64) (g, slope float64) {
 	mid := 0.5 * (e0.t + e1.t)
-	sd, cd := math.Sincos(tr.decAt(mid))
 	den := st.cosLat * cd
 	if den == 0 {
 		return mid, 0

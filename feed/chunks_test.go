@@ -124,9 +124,10 @@ func TestEventChunksOrderAndStop(t *testing.T) {
 	}
 }
 
-// mergeRuns gives what a stable sort of the whole gives, for runs in order,
-// out of order, empty, and with ties within and across runs.
-func TestMergeRuns(t *testing.T) {
+// sortByKey gives what a stable sort gives, for runs in order, out of
+// order, empty, with ties within and across runs, and with keys bunched in
+// a few places (crowded buckets).
+func TestSortByKey(t *testing.T) {
 	type item struct{ key, id int64 }
 	r := rand.New(rand.NewPCG(1, 2))
 	for trial := range 500 {
@@ -136,9 +137,17 @@ func TestMergeRuns(t *testing.T) {
 			n := r.IntN(30)
 			k := int64(r.IntN(50))
 			for range n {
-				if trial%3 == 0 && run%2 == 1 {
+				switch {
+				case trial%3 == 0 && run%2 == 1:
 					k = int64(r.IntN(50)) // out of order
-				} else {
+				case trial%5 == 1:
+					k = int64(r.IntN(3)) * 1e9 // bunched
+				case trial%5 == 2:
+					k = int64(r.IntN(200)) // a crowd in one bucket
+					if r.IntN(10) == 0 {
+						k = 1e12
+					}
+				default:
 					k += int64(r.IntN(3))
 				}
 				xs = append(xs, item{k, int64(len(xs))})
@@ -147,7 +156,7 @@ func TestMergeRuns(t *testing.T) {
 		}
 		want := slices.Clone(xs)
 		slices.SortStableFunc(want, func(a, b item) int { return cmp.Compare(a.key, b.key) })
-		got := mergeRuns(slices.Clone(xs), bounds, nil, func(x *item) int64 { return x.key })
+		got := sortByKey(slices.Clone(xs), nil, func(x *item) int64 { return x.key })
 		if !slices.Equal(got, want) {
 			t.Fatalf("runs %v of %v: merged %v, want %v", bounds, xs, got, want)
 		}

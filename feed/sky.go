@@ -224,67 +224,68 @@ func (s *Sky) eventsFor(ctx context.Context, p Place, specs []config.KindSpec, f
 	if err := c.prepare(altitudes(p.Observer, specs)...); err != nil {
 		return nil, nil, fmt.Errorf("feed: %w", err)
 	}
-	// Each kind appends its own run of events (and of notes), already in
-	// order or nearly so; the runs are merged instead of sorted.
-	evRuns, noteRuns := make([]int, 1, len(specs)+1), make([]int, 1, len(specs)+1)
+	// Each kind appends its own run of events (and of notes), in order or
+	// nearly so; the whole is then put in order by buckets.
 	for _, k := range specs {
 		c.maxLit, c.spec = k.MaxIllumination, k
 		if err := c.add(k.Kind); err != nil {
 			return nil, nil, fmt.Errorf("feed: %s: %w", k.Kind, err)
 		}
-		evRuns, noteRuns = append(evRuns, len(c.events)), append(noteRuns, len(c.notes))
 	}
 	buf.events, buf.notes = c.events, c.notes
-	buf.merged = mergeRuns(c.events, evRuns, buf.merged[:0], func(e *Event) int64 { return e.Start.UnixNano() })
-	buf.mnotes = mergeRuns(c.notes, noteRuns, buf.mnotes[:0], func(n *Note) int64 { return n.Date.Unix() })
+	buf.merged = sortByKey(c.events, buf.merged[:0], func(e *Event) int64 { return e.Start.UnixNano() })
+	buf.mnotes = sortByKey(c.notes, buf.mnotes[:0], func(n *Note) int64 { return n.Date.Unix() })
 	return buf.merged, buf.mnotes, nil
 }
 
-// mergeRuns appends to out the items of the runs xs[bounds[i]:bounds[i+1]]
-// in the order of key: a stable sort of xs (ties keep the run order, then
-// the order within a run) that sorts only runs that are out of order and
-// then merges them. The keys are taken once and the items are moved once.
-func mergeRuns[T any](xs []T, bounds []int, out []T, key func(*T) int64) []T {
-	keys := make([]int64, len(xs))
+// sortByKey appends to out the items of xs in the order of key, equal keys
+// in the order of xs (a stable sort), moving each item once: the items go
+// by a counting sort into buckets of equal width in key, about four to a
+// bucket (a few hours of a site's daily events), and each bucket is put in
+// order by insertion (by slices.SortStableFunc when it holds many).
+func sortByKey[T any](xs []T, out []T, key func(*T) int64) []T {
+	n := len(xs)
+	if n == 0 {
+		return out
+	}
+	keys := make([]int64, n)
+	lo, hi := key(&xs[0]), key(&xs[0])
 	for i := range xs {
-		keys[i] = key(&xs[i])
+		k := key(&xs[i])
+		keys[i], lo, hi = k, min(lo, k), max(hi, k)
 	}
-	order := make([]int32, len(xs)) // item positions, each run in order of key
-	for i := range order {
-		order[i] = int32(i)
+	nb := n/4 + 1
+	width := uint64(hi-lo)/uint64(nb) + 1
+	bucket := func(k int64) int { return int(uint64(k-lo) / width) }
+	starts := make([]int32, nb+1) // bucket b holds order[starts[b]:starts[b+1]]
+	for _, k := range keys {
+		starts[bucket(k)+1]++
 	}
-	heads := make([]int, 0, len(bounds))
-	for r := 0; r+1 < len(bounds); r++ {
-		run := order[bounds[r]:bounds[r+1]]
+	for b := range nb {
+		starts[b+1] += starts[b]
+	}
+	order := make([]int32, n)
+	next := slices.Clone(starts[:nb])
+	for i, k := range keys {
+		b := bucket(k)
+		order[next[b]] = int32(i)
+		next[b]++
+	}
+	for b := range nb {
+		run := order[starts[b]:starts[b+1]]
+		if len(run) > 32 {
+			slices.SortStableFunc(run, func(x, y int32) int { return cmp.Compare(keys[x], keys[y]) })
+			continue
+		}
 		for j := 1; j < len(run); j++ {
-			if keys[run[j]] < keys[run[j-1]] {
-				slices.SortStableFunc(run, func(a, b int32) int { return cmp.Compare(keys[a], keys[b]) })
-				break
+			for m := j; m > 0 && keys[run[m]] < keys[run[m-1]]; m-- {
+				run[m], run[m-1] = run[m-1], run[m]
 			}
 		}
-		if len(run) > 0 {
-			heads = append(heads, r)
-		}
 	}
-	out = slices.Grow(out, len(xs))
-	pos := slices.Clone(bounds[:len(bounds)-1])
-	for len(heads) > 1 {
-		best, bk := 0, keys[order[pos[heads[0]]]]
-		for j := 1; j < len(heads); j++ {
-			if k := keys[order[pos[heads[j]]]]; k < bk {
-				best, bk = j, k
-			}
-		}
-		r := heads[best]
-		out = append(out, xs[order[pos[r]]])
-		if pos[r]++; pos[r] == bounds[r+1] {
-			heads = slices.Delete(heads, best, best+1)
-		}
-	}
-	for _, r := range heads { // the last run left
-		for _, i := range order[pos[r]:bounds[r+1]] {
-			out = append(out, xs[i])
-		}
+	out = slices.Grow(out, n)
+	for _, i := range order {
+		out = append(out, xs[i])
 	}
 	return out
 }

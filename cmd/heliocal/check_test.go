@@ -129,3 +129,25 @@ func TestCheckJSON(t *testing.T) {
 		t.Errorf("--format yaml: exit %d, %s", code, errOut)
 	}
 }
+
+// check's table writes a kinds entry with its offset, so that a reminder
+// before sunrise reads apart from the sunrise itself; the JSON keeps the
+// kind names.
+func TestCheckShowsOffsets(t *testing.T) {
+	cfg := writeConfig(t, `sites:
+  - {id: finca-guira, latitude: 22.85, longitude: -82.5, timezone: America/Havana}
+feeds:
+  - id: guira-sun
+    site: finca-guira
+    days_ahead: 10
+    kinds: [sunrise, {kind: sunrise, offset: -30m, label: Open the barn vents}, {kind: sunset, offset: 15m}]
+`)
+	code, out, errOut := runCLI(t, "check", "--config", cfg)
+	if code != 0 || !strings.Contains(out, "sunrise,sunrise-30m,sunset+15m") {
+		t.Errorf("exit %d, table:\n%s%s\nwant the kinds sunrise,sunrise-30m,sunset+15m", code, out, errOut)
+	}
+	_, js, _ := runCLI(t, "check", "--config", cfg, "--format", "json")
+	if !strings.Contains(js, `"sunrise",`) || strings.Contains(js, "sunrise-30m") {
+		t.Errorf("JSON kinds changed: %s", js)
+	}
+}

@@ -83,6 +83,9 @@ type checkFeed struct {
 	Events    int      `json:"events"`
 	Bytes     int      `json:"bytes"`
 	Oversize  bool     `json:"oversize"` // over service.max_feed_bytes
+	// shown are the kinds as the text table writes them: with a kinds
+	// entry's offset ("sunrise-30m"), so two sunrise entries read apart
+	shown []string
 }
 
 // writeCheckJSON prints a report, indented, on standard output.
@@ -174,13 +177,18 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		if err != nil {
 			return nil, nil, fmt.Errorf("feed %q: %w", f.ID, err)
 		}
-		kinds := make([]string, len(f.Kinds))
+		kinds, shown := make([]string, len(f.Kinds)), make([]string, len(f.Kinds))
 		for j, k := range f.Kinds {
-			kinds[j] = k.Kind.String()
+			kinds[j], shown[j] = k.Kind.String(), k.Kind.String()
+			if off := k.Offset.D(); off > 0 {
+				shown[j] += "+" + k.Offset.String()
+			} else if off < 0 {
+				shown[j] += k.Offset.String()
+			}
 		}
 		over := limit > 0 && len(data) > limit
 		r.Feeds = append(r.Feeds, checkFeed{ID: f.ID, Site: f.Site, Kinds: kinds, Plans: len(f.Plans), DaysBack: f.DaysBack, DaysAhead: f.DaysAhead,
-			Events: len(cal.Entries), Bytes: len(data), Oversize: over})
+			Events: len(cal.Entries), Bytes: len(data), Oversize: over, shown: shown})
 		for _, e := range cal.Entries {
 			if e.Facts.Note && strings.HasPrefix(e.Kind, "photoperiod:") {
 				r.Warnings = append(r.Warnings, fmt.Sprintf("feed %q: %s: %s; the feed shows only this note for it", f.ID, e.Kind, e.Title))
@@ -216,7 +224,7 @@ func writeCheckText(g *globals, r *checkReport, notes []string) {
 	tw = tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	fmt.Fprintln(tw, "FEED\tSITE\tKINDS\tWINDOW\tEVENTS\tSIZE")
 	for _, f := range r.Feeds {
-		kinds := f.Kinds
+		kinds := f.shown
 		switch f.Plans {
 		case 0:
 		case 1:

@@ -273,9 +273,16 @@ func (w *Writer) writeTemp(name string, data []byte) (_ string, err error) {
 			os.Remove(tmp)
 		}
 	}()
-	n, err := f.Write(data)
-	if err == nil && n != len(data) {
-		err = io.ErrShortWrite
+	direct := false
+	if osf, ok := f.(*os.File); ok {
+		direct, err = writeDirect(osf, data)
+	}
+	if !direct {
+		var n int
+		n, err = f.Write(data)
+		if err == nil && n != len(data) {
+			err = io.ErrShortWrite
+		}
 	}
 	if err != nil {
 		return "", fmt.Errorf("publish: write %s: %w", name, err)

@@ -18,6 +18,14 @@ import (
 //     fraction below the threshold the caller gives (0 = the Moon must be
 //     down; a thin crescent hardly brightens the sky).
 //
+// Over a skyline per direction (DarkSkylineWindows) the Moon is down while
+// its upper limb is behind the skyline in its direction (MoonSkyline-
+// Crossings: also while a peak hides it), for the Moon's own light and its
+// glare are then off the site. The Sun's −18° stays geometric and against
+// the flat horizon: the glow of twilight is sunlight scattered high in the
+// atmosphere, over the hills as well as behind them, and no skyline puts
+// it out.
+//
 // A night is named by the local date of its evening and runs from local noon
 // of that date to local noon of the next (so a window after midnight belongs
 // to the previous date's night, as observers plan it). In polar winter a dark
@@ -145,6 +153,27 @@ func (e *MoonEphemeris) fractionCrossings(thr, a, b float64, out []darkEvent) []
 // nights must lie within Coverage(). It stops with ctx's error when ctx is
 // done.
 func (e *MoonEphemeris) DarkWindows(ctx context.Context, o Observer, loc *time.Location, first, last time.Time, maxFraction float64) ([]Night, error) {
+	return e.darkWindows(ctx, o, nil, loc, first, last, maxFraction)
+}
+
+// DarkSkylineWindows is DarkWindows at a site with the skyline sky: the Moon
+// counts as down while its upper limb is behind the skyline in its
+// direction, by the rule of MoonSkylineCrossings (o.Horizon is ignored);
+// the Sun's −18° is unchanged (see the top of this file). A skyline at one
+// altitude everywhere gives exactly DarkWindows with that Horizon.
+func (e *MoonEphemeris) DarkSkylineWindows(ctx context.Context, o Observer, sky Skyline, loc *time.Location, first, last time.Time, maxFraction float64) ([]Night, error) {
+	if len(sky) == 0 {
+		return nil, &InputError{"skyline", 0, "needs at least one point"}
+	}
+	if flat, ok := sky.flat(); ok {
+		o.Horizon = flat
+		sky = nil
+	}
+	return e.darkWindows(ctx, o, sky, loc, first, last, maxFraction)
+}
+
+// darkWindows is DarkWindows, over the skyline sky when it is not nil.
+func (e *MoonEphemeris) darkWindows(ctx context.Context, o Observer, sky Skyline, loc *time.Location, first, last time.Time, maxFraction float64) ([]Night, error) {
 	dates, err := localDays(ctx, "DarkWindows", loc, first, last, 12)
 	if err != nil {
 		return nil, err
@@ -161,7 +190,7 @@ func (e *MoonEphemeris) DarkWindows(ctx context.Context, o Observer, loc *time.L
 		return nil, err
 	}
 	a, b := unixSeconds(start), unixSeconds(stop)
-	state, evs := e.darkEvents(o, st, a, b, maxFraction)
+	state, evs := e.darkEvents(o, st, sky, a, b, maxFraction)
 	spans, sunDark := darkSpans(state, evs, a, b)
 	return splitNights(ctx, loc, dates, spans, sunDark)
 }
@@ -171,13 +200,16 @@ type interval struct{ a, b float64 }
 
 // darkEvents returns the three dark-sky conditions at a (Sun below −18°,
 // Moon up, Moon too bright when up) and every change of them in [a, b), in
-// order.
-func (e *MoonEphemeris) darkEvents(o Observer, st *site, a, b, maxFraction float64) ([3]bool, []darkEvent) {
+// order; the Moon is up over the skyline sky when it is not nil.
+func (e *MoonEphemeris) darkEvents(o Observer, st *site, sky Skyline, a, b, maxFraction float64) ([3]bool, []darkEvent) {
 	sinDark := math.Sin(AstronomicalTwilight * deg2rad)
 	state := [3]bool{
 		e.sun.sun.sinAltitude(st, a) < sinDark,
 		e.moonUp(o, st, a),
 		maxFraction > 0 && e.moonFraction(a) >= maxFraction,
+	}
+	if sky != nil {
+		state[1] = e.moonOverSkyline(o, st, sky, a)
 	}
 	if maxFraction == 0 {
 		state[2] = true // any Moon above the horizon is too bright
@@ -186,8 +218,14 @@ func (e *MoonEphemeris) darkEvents(o Observer, st *site, a, b, maxFraction float
 	for _, c := range e.sun.sun.crossings(st, e.sun.sun.extrema(st, a, b), sinDark, a, b, nil) {
 		evs = append(evs, darkEvent{t: c.t, on: !c.rising, id: 0})
 	}
-	for _, c := range e.moonCrossings(o, st, e.moon.extrema(st, a, b), a, b) {
-		evs = append(evs, darkEvent{t: c.t, on: c.rising, id: 1})
+	if sky != nil {
+		for _, c := range e.moonSkyline(o, st, sky, a, b) {
+			evs = append(evs, darkEvent{t: unixSeconds(c.Time), on: c.Direction == Rising, id: 1})
+		}
+	} else {
+		for _, c := range e.moonCrossings(o, st, e.moon.extrema(st, a, b), a, b) {
+			evs = append(evs, darkEvent{t: c.t, on: c.rising, id: 1})
+		}
 	}
 	if maxFraction > 0 && maxFraction < 1 {
 		evs = e.fractionCrossings(maxFraction, a, b, evs)

@@ -354,11 +354,15 @@ func (e *MoonEphemeris) MoonSkylineDays(ctx context.Context, o Observer, sky Sky
 	}
 	return crossingDays(ctx, "MoonSkylineDays", o, loc, first, last,
 		func(from, to time.Time) ([]Crossing, error) { return e.MoonSkylineRiseSet(o, sky, from, to) },
-		func(st *site, sec float64) bool {
-			az := e.moon.azimuth(st, sec) * rad2deg
-			h0 := (o.threshold(sky.Altitude(az))+16.0/60)*deg2rad - e.moonSemidiameter(st, sec)
-			return e.moon.sinAltitude(st, sec) > math.Sin(h0)
-		})
+		func(st *site, sec float64) bool { return e.moonOverSkyline(o, st, sky, sec) })
+}
+
+// moonOverSkyline reports whether the Moon's upper limb is over the skyline
+// in its direction at Unix second sec.
+func (e *MoonEphemeris) moonOverSkyline(o Observer, st *site, sky Skyline, sec float64) bool {
+	az := e.moon.azimuth(st, sec) * rad2deg
+	h0 := (o.threshold(sky.Altitude(az))+16.0/60)*deg2rad - e.moonSemidiameter(st, sec)
+	return e.moon.sinAltitude(st, sec) > math.Sin(h0)
 }
 
 // String writes a skyline as "[az, alt] …" for messages.

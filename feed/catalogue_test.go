@@ -855,3 +855,44 @@ func TestSkylineMoon(t *testing.T) {
 		}
 	}
 }
+
+// Over a skyline, dark-window takes the Moon as down while it is behind
+// the skyline (the demo valley's 15° hills to the west hide the setting
+// crescent of March 2027 earlier than a flat horizon), says so, and says
+// the Sun's 18° are counted from the flat horizon.
+func TestDarkWindowOverSkyline(t *testing.T) {
+	s := site(t, "valley", 47.05, 11.2, "Europe/Vienna")
+	s.Skyline = [][2]float64{{0, 3}, {100, 12}, {150, 4}, {176, 25}, {184, 25}, {190, 4}, {260, 15}, {300, 3}}
+	flat := site(t, "flat", 47.05, 11.2, "Europe/Vienna")
+	sk := sky(t, "2027-03-10", "2027-03-16")
+	specs := []config.KindSpec{{Kind: mustKinds(t, "dark-window")[0]}}
+	total := func(s *config.Site) (time.Duration, []Entry) {
+		es, err := sk.Entries(context.Background(), s, "f", specs, date("2027-03-10"), date("2027-03-15"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		var sum time.Duration
+		for _, e := range es {
+			if !e.AllDay {
+				sum += e.End.Sub(e.Start)
+			}
+		}
+		return sum, es
+	}
+	valley, es := total(s)
+	open, flatEs := total(flat)
+	if valley < open+30*time.Minute {
+		t.Errorf("dark time %v in the valley, %v over a flat horizon: the hills should hide the setting Moon", valley, open)
+	}
+	for _, e := range es {
+		if !e.AllDay && (!strings.Contains(e.Description, "the Moon is behind the site's skyline") ||
+			!strings.Contains(e.Description, "18° are counted from the flat horizon")) {
+			t.Errorf("description: %q", e.Description)
+		}
+	}
+	for _, e := range flatEs {
+		if !e.AllDay && (!strings.Contains(e.Description, "the Moon is below the horizon") || strings.Contains(e.Description, "skyline")) {
+			t.Errorf("flat description: %q", e.Description)
+		}
+	}
+}

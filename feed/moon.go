@@ -187,7 +187,13 @@ func (c *collector) darkWindows(k config.Kind) error {
 	if err != nil {
 		return err
 	}
-	nights, err := me.DarkWindows(c.ctx, c.p.Observer, c.p.Location, midnight(c.first, c.p.Location), midnight(c.last, c.p.Location), c.maxLit)
+	from, to := midnight(c.first, c.p.Location), midnight(c.last, c.p.Location)
+	var nights []astro.Night
+	if len(c.p.Skyline) > 0 { // the Moon behind the hills is out of the sky
+		nights, err = me.DarkSkylineWindows(c.ctx, c.p.Observer, c.p.Skyline, c.p.Location, from, to, c.maxLit)
+	} else {
+		nights, err = me.DarkWindows(c.ctx, c.p.Observer, c.p.Location, from, to, c.maxLit)
+	}
 	if err != nil {
 		return err
 	}
@@ -269,10 +275,17 @@ func describeMoon(s *siteInfo, e Event) (string, string) {
 		title = fmt.Sprintf("Dark sky, %s, %s", length, NightOf(e.Date))
 		fmt.Fprintf(&b, "Dark sky on the %s from %s%s to %s%s (%s), %s: the Sun is more than 18° below the horizon and ",
 			NightOf(e.Date), at, DayMark(e.Start, e.Date, loc), localClock(e.End, loc), DayMark(e.End, e.Date, loc), length, s.where)
+		down := "below the horizon"
+		if len(s.Skyline) > 0 {
+			down = "behind the site's skyline"
+		}
 		if e.Illuminated > 0 {
-			fmt.Fprintf(&b, "the Moon is down or less than %s lit.", percent(e.Illuminated))
+			fmt.Fprintf(&b, "the Moon is %s or less than %s lit.", down, percent(e.Illuminated))
 		} else {
-			b.WriteString("the Moon is below the horizon.")
+			b.WriteString("the Moon is " + down + ".")
+		}
+		if len(s.Skyline) > 0 {
+			b.WriteString("\nThe Sun's 18° are counted from the flat horizon, not the skyline: the glow of twilight lights the sky over the hills as well.")
 		}
 	default:
 		return e.Kind.String(), fmt.Sprintf("%s at %s, %s.", e.Kind, at, s.where)
@@ -301,6 +314,9 @@ func describeMoonNote(s *siteInfo, n Note) (string, string) {
 			title = "No dark sky on the " + NightOf(n.Date) + ": the Sun stays less than 18° below the horizon"
 		} else {
 			title = "No dark sky on the " + NightOf(n.Date) + ": the Moon is up and bright all through the astronomical night"
+			if len(s.Skyline) > 0 {
+				title = "No dark sky on the " + NightOf(n.Date) + ": the Moon is over the skyline and bright all through the astronomical night"
+			}
 		}
 	default:
 		title = n.Kind.String()

@@ -376,3 +376,70 @@ func (s Skyline) String() string {
 	}
 	return out
 }
+
+// sunOverSkyline reports whether the Sun's upper limb is over the skyline
+// in its direction at Unix second sec.
+func (e *Ephemeris) sunOverSkyline(o Observer, st *site, sky Skyline, sec float64) bool {
+	az := e.sun.azimuth(st, sec) * rad2deg
+	return e.sun.sinAltitude(st, sec) > math.Sin(o.threshold(sky.Altitude(az))*deg2rad)
+}
+
+// SunSkylineSpans returns the spans within [from, to) during which the
+// Sun's upper limb is over the skyline sky (by SunSkylineCrossings), e.g.
+// the part of an eclipse that can be seen from a valley. The span must lie
+// within Coverage().
+func (e *Ephemeris) SunSkylineSpans(o Observer, sky Skyline, from, to time.Time) ([]Span, error) {
+	cs, err := e.SunSkylineCrossings(o, sky, from, to)
+	if err != nil {
+		return nil, err
+	}
+	st, err := e.query(o, from, from)
+	if err != nil {
+		return nil, err
+	}
+	return spansOver(cs, e.sunOverSkyline(o, st, sky, unixSeconds(from)), from, to), nil
+}
+
+// MoonSkylineSpans is SunSkylineSpans for the Moon (by
+// MoonSkylineCrossings).
+func (e *MoonEphemeris) MoonSkylineSpans(o Observer, sky Skyline, from, to time.Time) ([]Span, error) {
+	cs, err := e.MoonSkylineCrossings(o, sky, from, to)
+	if err != nil {
+		return nil, err
+	}
+	st, err := e.query(o, from, from)
+	if err != nil {
+		return nil, err
+	}
+	return spansOver(cs, e.moonOverSkyline(o, st, sky, unixSeconds(from)), from, to), nil
+}
+
+// spansOver turns the crossings cs of [from, to) into the spans over the
+// skyline; up is the state at from, used when there is no crossing (else
+// the first crossing tells it).
+func spansOver(cs []Crossing, up bool, from, to time.Time) []Span {
+	if len(cs) > 0 {
+		up = cs[0].Direction == Setting
+	}
+	var out []Span
+	start := from
+	add := func(end time.Time) {
+		if end.After(start) {
+			out = append(out, Span{Start: start, End: end, Length: end.Sub(start)})
+		}
+	}
+	for _, c := range cs {
+		if c.Direction == Rising {
+			start, up = c.Time, true
+		} else {
+			if up {
+				add(c.Time)
+			}
+			up = false
+		}
+	}
+	if up {
+		add(to)
+	}
+	return out
+}

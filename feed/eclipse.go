@@ -45,24 +45,48 @@ func (c *collector) eclipses(k config.Kind) error {
 	if err := o.Validate(); err != nil {
 		return err
 	}
-	add := func(start, end time.Time, e Event) {
+	var me *astro.MoonEphemeris
+	add := func(start, end time.Time, e Event) error {
 		e.Kind, e.Start, e.End = k, start, end
 		e.Date = localDate(start, c.p.Location)
-		if c.inRange(e.Date) {
-			c.events = append(c.events, e)
+		if !c.inRange(e.Date) {
+			return nil
 		}
+		if len(c.p.Skyline) > 0 { // the part over the skyline is what the site sees
+			var err error
+			e.Skyline = true
+			if e.Solar != nil {
+				e.Visible, err = c.sky.eph.SunSkylineSpans(o, c.p.Skyline, start, end)
+			} else {
+				if me == nil {
+					if me, err = c.sky.moonEphemeris(); err != nil {
+						return err
+					}
+				}
+				e.Visible, err = me.MoonSkylineSpans(o, c.p.Skyline, start, end)
+			}
+			if err != nil {
+				return err
+			}
+		}
+		c.events = append(c.events, e)
+		return nil
 	}
 	if k.Name == "solar-eclipse" {
 		for _, e := range list.solar {
 			if l, ok := e.Local(o); ok && l.Visible() {
-				add(l.C1.Time, l.C4.Time, Event{Solar: &l})
+				if err := add(l.C1.Time, l.C4.Time, Event{Solar: &l}); err != nil {
+					return err
+				}
 			}
 		}
 		return nil
 	}
 	for _, e := range list.lunar {
 		if l := e.Local(o); l.Visible() {
-			add(l.P1.Time, l.P4.Time, Event{Lunar: &l})
+			if err := add(l.P1.Time, l.P4.Time, Event{Lunar: &l}); err != nil {
+				return err
+			}
 		}
 	}
 	return nil
@@ -118,19 +142,63 @@ func degreesWhole(a float64) string {
 // describeEclipse gives the title and description of an eclipse entry.
 func describeEclipse(s *siteInfo, e Event) (string, string) {
 	if e.Solar != nil {
-		return describeSolar(s, e.Solar)
+		return describeSolar(s, e)
 	}
-	return describeLunar(s, e.Lunar)
+	return describeLunar(s, e)
 }
 
-func describeSolar(s *siteInfo, l *astro.LocalSolarEclipse) (string, string) {
+// skylineText says, for an eclipse at a site with a skyline, when the body
+// (body: "Sun" or "Moon") is over the skyline, so seen from the site, and
+// adds to the title ("behind the skyline here", "partly behind the
+// skyline"); phase names the eclipse's phase at an instant of it. It
+// returns "" and the title unchanged at a site without one.
+func skylineText(s *siteInfo, e Event, body, title string, phase func(time.Time) string) (string, string) {
+	if !e.Skyline {
+		return "", title
+	}
+	loc := s.TimeZone.Location
+	if len(e.Visible) == 0 {
+		return fmt.Sprintf("The %s stays behind the site's skyline all through the eclipse: none of it can be seen from the site.\n", body),
+			title + " (behind the skyline here)"
+	}
+	if len(e.Visible) == 1 && !e.Visible[0].Start.After(e.Start) && !e.Visible[0].End.Before(e.End) {
+		return fmt.Sprintf("The %s is over the site's skyline all through the eclipse.\n", body), title
+	}
+	var b strings.Builder
+	var seen time.Duration
+	for _, v := range e.Visible {
+		seen += v.Length
+		if v.Start.After(e.Start) {
+			fmt.Fprintf(&b, "The %s appears over the site's skyline at %s, %s.\n", body, localClock(v.Start, loc), phase(v.Start))
+		}
+		if v.End.Before(e.End) {
+			fmt.Fprintf(&b, "The %s disappears behind the site's skyline at %s, %s.\n", body, localClock(v.End, loc), phase(v.End))
+		}
+	}
+	fmt.Fprintf(&b, "Seen from the site, over its skyline, for %s of the eclipse's %s.\n",
+		amount(seen.Round(time.Minute)), amount(e.End.Sub(e.Start).Round(time.Minute)))
+	return b.String(), title + " (partly behind the skyline)"
+}
+
+// placeAt is bodyPlace, with "behind the skyline" for a body above the
+// horizon but behind the site's skyline.
+func placeAt(e Event, body string, c astro.Contact) string {
+	p := bodyPlace(body, c)
+	if c.Up && !e.seen(c.Time) {
+		p += ", behind the site's skyline"
+	}
+	return p
+}
+
+func describeSolar(s *siteInfo, e Event) (string, string) {
+	l := e.Solar
 	loc := s.TimeZone.Location
 	typ := l.Type.String()
 	var b strings.Builder
 	fmt.Fprintf(&b, "%s solar eclipse seen from %s, %s to %s.\n", capital(typ), s.where,
 		localClock(l.C1.Time, loc), localClock(l.C4.Time, loc))
 	line := func(name string, c astro.Contact, extra string) {
-		fmt.Fprintf(&b, "%s %s; %s%s.\n", localClock(c.Time, loc), name, bodyPlace("Sun", c), extra)
+		fmt.Fprintf(&b, "%s %s; %s%s.\n", localClock(c.Time, loc), name, placeAt(e, "Sun", c), extra)
 	}
 	line("first contact, the Moon begins to cover the Sun", l.C1, "")
 	if !l.C2.IsZero() {
@@ -151,6 +219,10 @@ func describeSolar(s *siteInfo, l *astro.LocalSolarEclipse) (string, string) {
 		best = 0
 	}
 	for _, h := range l.Horizon {
+		if e.Skyline {
+			best = math.Max(best, h.Magnitude)
+			continue // the skyline's appearance and disappearance are said below
+		}
 		verb, state := "rises", "already eclipsed"
 		if h.Direction == astro.Setting {
 			verb, state = "sets", "still eclipsed"
@@ -158,9 +230,12 @@ func describeSolar(s *siteInfo, l *astro.LocalSolarEclipse) (string, string) {
 		fmt.Fprintf(&b, "The Sun %s at %s %s, %s of its diameter covered.\n", verb, localClock(h.Time, loc), state, share(h.Magnitude))
 		best = math.Max(best, h.Magnitude)
 	}
-	if !l.Max.Up {
+	if !l.Max.Up && !e.Skyline {
 		b.WriteString("Greatest eclipse happens with the Sun below the horizon here; the part listed above the horizon is what can be seen.\n")
 	}
+	eclipsed := func(time.Time) string { return "eclipsed" }
+	over, _ := skylineText(s, e, "Sun", "", eclipsed)
+	b.WriteString(over)
 	if g := l.Eclipse.Type; g != l.Type && !(g == astro.Hybrid && l.Type != astro.Partial) {
 		fmt.Fprintf(&b, "Elsewhere on the Earth this eclipse is %s.\n", g)
 	}
@@ -178,15 +253,18 @@ func describeSolar(s *siteInfo, l *astro.LocalSolarEclipse) (string, string) {
 		title = fmt.Sprintf("%s solar eclipse at the horizon", capital(typ))
 	}
 	switch {
+	case e.Skyline: // the skyline's suffix instead
 	case len(l.Horizon) > 0 && l.Horizon[0].Direction == astro.Rising:
 		title += " (at sunrise)"
 	case len(l.Horizon) > 0:
 		title += " (at sunset)"
 	}
+	_, title = skylineText(s, e, "Sun", title, eclipsed)
 	return title, b.String()
 }
 
-func describeLunar(s *siteInfo, l *astro.LocalLunarEclipse) (string, string) {
+func describeLunar(s *siteInfo, ev Event) (string, string) {
+	l := ev.Lunar
 	loc := s.TimeZone.Location
 	e := l.Eclipse
 	typ := e.Type.String()
@@ -197,7 +275,7 @@ func describeLunar(s *siteInfo, l *astro.LocalLunarEclipse) (string, string) {
 		if c.IsZero() {
 			return
 		}
-		fmt.Fprintf(&b, "%s %s; %s%s.\n", localClock(c.Time, loc), name, moonPlace(c), extra)
+		fmt.Fprintf(&b, "%s %s; %s%s.\n", localClock(c.Time, loc), name, placeAt(ev, "Moon", c), extra)
 	}
 	line("the Moon enters the faint outer shadow (penumbra)", l.P1, "")
 	line("the partial eclipse begins: the Moon enters the dark shadow (umbra)", l.U1, "")
@@ -228,8 +306,14 @@ func describeLunar(s *siteInfo, l *astro.LocalLunarEclipse) (string, string) {
 		} else {
 			rises = true
 		}
+		if ev.Skyline {
+			continue // the skyline's appearance and disappearance are said below
+		}
 		fmt.Fprintf(&b, "The Moon %s at %s during the eclipse (%s).\n", verb, localClock(h.Time, loc), lunarPhaseAt(e, h.Time))
 	}
+	phase := func(t time.Time) string { return lunarPhaseAt(e, t) }
+	over, _ := skylineText(s, ev, "Moon", "", phase)
+	b.WriteString(over)
 	b.WriteString(lunarMethod)
 	b.WriteString(FutureNote(e.Max))
 
@@ -243,6 +327,7 @@ func describeLunar(s *siteInfo, l *astro.LocalLunarEclipse) (string, string) {
 		title = "Penumbral lunar eclipse: a slight dimming of the Moon"
 	}
 	switch {
+	case ev.Skyline: // the skyline's suffix instead
 	case rises && sets:
 		title += " (the Moon rises and sets during it)"
 	case rises:
@@ -250,12 +335,8 @@ func describeLunar(s *siteInfo, l *astro.LocalLunarEclipse) (string, string) {
 	case sets:
 		title += " (at moonset)"
 	}
+	_, title = skylineText(s, ev, "Moon", title, phase)
 	return title, b.String()
-}
-
-// moonPlace describes the Moon at a lunar-eclipse contact.
-func moonPlace(c astro.Contact) string {
-	return bodyPlace("Moon", c)
 }
 
 // lunarPhaseAt names the phase of a lunar eclipse in progress at t.

@@ -163,3 +163,68 @@ func TestEclipseMinDuration(t *testing.T) {
 		t.Errorf("%d eclipses, %d of 2 h or more, %d kept", len(all), long, len(kept))
 	}
 }
+
+// At a site with a skyline (the demo's invented valley, with 15° hills to
+// the west-south-west) an eclipse is listed as over the flat horizon, and
+// its entry says what of it is over the skyline: the setting Sun of 12
+// August 2026 disappears behind the hills at the same instant as that
+// date's sunset over the skyline (its last disappearance); the eclipse of
+// 26 January 2028 stays wholly behind them; the Sun of 2 August 2027 is
+// over them throughout. A flat site's entries say nothing of a skyline.
+func TestEclipseBehindSkyline(t *testing.T) {
+	s := site(t, "valley", 47.05, 11.2, "Europe/Vienna")
+	s.Skyline = [][2]float64{{0, 3}, {100, 12}, {150, 4}, {176, 25}, {184, 25}, {190, 4}, {260, 15}, {300, 3}}
+	sk := sky(t, "2026-08-01", "2028-01-31")
+	evs, _, err := sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "solar-eclipse", "sunset"), date("2026-08-12"), date("2028-01-26"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var sunset time.Time
+	got := map[string]Event{}
+	for _, e := range evs {
+		switch {
+		case e.Kind.Name == "sunset" && e.Date == date("2026-08-12"):
+			sunset = e.Start
+		case e.Kind.Name == "solar-eclipse":
+			got[e.Date.Format(time.DateOnly)] = e
+		}
+	}
+	partly, hidden, whole := got["2026-08-12"], got["2028-01-26"], got["2027-08-02"]
+	if !partly.Skyline || len(partly.Visible) != 1 || !partly.Visible[0].Start.Equal(partly.Start) ||
+		partly.Visible[0].End.Sub(sunset).Abs() > 2*time.Millisecond {
+		t.Errorf("12 Aug 2026: over the skyline %+v, sunset over the skyline %v", partly.Visible, sunset)
+	}
+	if !hidden.Skyline || len(hidden.Visible) != 0 {
+		t.Errorf("26 Jan 2028: over the skyline %+v, want none", hidden.Visible)
+	}
+	if len(whole.Visible) != 1 || !whole.Visible[0].Start.Equal(whole.Start) || !whole.Visible[0].End.Equal(whole.End) {
+		t.Errorf("2 Aug 2027: over the skyline %+v, want all of %v–%v", whole.Visible, whole.Start, whole.End)
+	}
+
+	es := eclipseEntries(t, s, "2026-08-12", "2028-01-26", "solar-eclipse")
+	texts := map[string]Entry{}
+	for _, e := range es {
+		texts[e.Date.Format(time.DateOnly)] = e
+	}
+	for date, want := range map[string][]string{
+		"2026-08-12": {"(partly behind the skyline)", "The Sun disappears behind the site's skyline at 19:39:4", "Seen from the site, over its skyline, for 15 min of the eclipse's 1 h 43 min.", "behind the site's skyline; the Moon covers", "ISO 12312-2"},
+		"2028-01-26": {"(behind the skyline here)", "The Sun stays behind the site's skyline all through the eclipse: none of it can be seen from the site.", "ISO 12312-2"},
+		"2027-08-02": {"The Sun is over the site's skyline all through the eclipse."},
+	} {
+		e := texts[date]
+		for _, w := range want {
+			if !strings.Contains(e.Title+"\n"+e.Description, w) {
+				t.Errorf("%s lacks %q:\n%s\n%s", date, w, e.Title, e.Description)
+			}
+		}
+		if strings.Contains(e.Title, "(at sunset)") {
+			t.Errorf("%s: title %q speaks of the flat horizon's sunset", date, e.Title)
+		}
+	}
+	flat := site(t, "flat", 47.05, 11.2, "Europe/Vienna")
+	for _, e := range eclipseEntries(t, flat, "2026-08-12", "2028-01-26", "solar-eclipse", "lunar-eclipse") {
+		if strings.Contains(e.Title+e.Description, "skyline") {
+			t.Errorf("flat site: %s\n%s", e.Title, e.Description)
+		}
+	}
+}

@@ -49,6 +49,24 @@ type Event struct {
 	// Eclipses: the local circumstances (one of the two is set).
 	Solar *astro.LocalSolarEclipse
 	Lunar *astro.LocalLunarEclipse
+	// Eclipses at a site with a skyline (Skyline true): the spans of the
+	// eclipse with the body over the skyline, none when it stays behind it.
+	Skyline bool
+	Visible []astro.Span
+}
+
+// seen reports whether an eclipse event's body is over the site's skyline
+// at t (always, at a site without a skyline).
+func (e Event) seen(t time.Time) bool {
+	if !e.Skyline {
+		return true
+	}
+	for _, s := range e.Visible {
+		if !t.Before(s.Start) && !t.After(s.End) {
+			return true
+		}
+	}
+	return false
 }
 
 // Note is an explicit "no event" state for a local date: the Sun does not set,

@@ -327,7 +327,8 @@ func noteText(n *feed.Note) string {
 var eventsCSVHeader = []string{"date", "kind", "start_utc", "end_utc", "direction", "start_local", "end_local", "state",
 	"until", "detail", "part", "altitude_deg", "distance_au", "day_length_s", "day_change_s", "illuminated", "lamp_s",
 	"target_not_reached", "uncertainty_s", "max", "type", "magnitude", "obscuration", "umbral_magnitude",
-	"partial_start", "partial_end", "total_start", "total_end", "azimuth_deg", "direct_sun_s"}
+	"partial_start", "partial_end", "total_start", "total_end", "azimuth_deg", "direct_sun_s",
+	"visible_s", "visible_start", "visible_end"}
 
 // writeEventsCSVRows writes the rows of events and notes (one chunk of
 // dates) under eventsCSVHeader, by local date, notes first on their date.

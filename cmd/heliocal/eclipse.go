@@ -25,6 +25,11 @@ type jsonEclipse struct {
 	PartialEnd      string   `json:"partial_end,omitempty"`
 	TotalStart      string   `json:"total_start,omitempty"`
 	TotalEnd        string   `json:"total_end,omitempty"`
+	// At a site with a skyline: the time the body is over it during the
+	// eclipse, and its first appearance and last disappearance within it.
+	VisibleS     *float64 `json:"visible_s,omitempty"`
+	VisibleStart string   `json:"visible_start,omitempty"`
+	VisibleEnd   string   `json:"visible_end,omitempty"`
 }
 
 // eclipseJSON returns the eclipse fields of an event, nil for other kinds.
@@ -39,17 +44,31 @@ func eclipseJSON(e feed.Event) *jsonEclipse {
 		r := math.Round(v*1e4) / 1e4
 		return &r
 	}
+	var j *jsonEclipse
 	switch {
 	case e.Solar != nil:
 		l := e.Solar
-		return &jsonEclipse{Max: at(l.Max.Time), Type: l.Type.String(), Magnitude: round(l.Magnitude),
+		j = &jsonEclipse{Max: at(l.Max.Time), Type: l.Type.String(), Magnitude: round(l.Magnitude),
 			Obscuration: round(l.Obscuration), TotalStart: at(l.C2.Time), TotalEnd: at(l.C3.Time)}
 	case e.Lunar != nil:
 		l := e.Lunar.Eclipse
-		return &jsonEclipse{Max: at(l.Max), Type: l.Type.String(), UmbralMagnitude: round(l.UmbralMagnitude),
+		j = &jsonEclipse{Max: at(l.Max), Type: l.Type.String(), UmbralMagnitude: round(l.UmbralMagnitude),
 			PartialStart: at(l.U1), PartialEnd: at(l.U4), TotalStart: at(l.U2), TotalEnd: at(l.U3)}
+	default:
+		return nil
 	}
-	return nil
+	if e.Skyline {
+		var seen time.Duration
+		for _, v := range e.Visible {
+			seen += v.Length
+		}
+		s := math.Round(seen.Seconds()*1000) / 1000
+		j.VisibleS = &s
+		if n := len(e.Visible); n > 0 {
+			j.VisibleStart, j.VisibleEnd = at(e.Visible[0].Start), at(e.Visible[n-1].End)
+		}
+	}
+	return j
 }
 
 // eclipseDetails are the table's details of an eclipse: type, maximum and

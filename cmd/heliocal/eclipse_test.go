@@ -109,3 +109,33 @@ feeds:
 		}
 	}
 }
+
+// At a site with a skyline the JSON of an eclipse says how long the body is
+// over the skyline during it (visible_s, 0 when it stays behind) and its
+// first appearance and last disappearance within it; the demo's valley
+// loses the setting Sun of 12 August 2026 behind its western hills and
+// sees none of the eclipse of 26 January 2028.
+func TestEventsJSONEclipseSkyline(t *testing.T) {
+	_, evs := eventKeys(t, "--site", "brackenfold", "--kinds", "solar-eclipse", "--from", "2026-08-01", "--to", "2028-01-31")
+	by := map[string]map[string]any{}
+	for _, e := range evs {
+		by[e["date"].(string)] = e
+	}
+	p, h := by["2026-08-12"], by["2028-01-26"]
+	if p == nil || h == nil {
+		t.Fatalf("events %v", evs)
+	}
+	start, _ := time.Parse(time.RFC3339, p["visible_start"].(string))
+	end, _ := time.Parse(time.RFC3339, p["visible_end"].(string))
+	if p["visible_start"] != p["start"] || p["visible_end"] == p["end"] || p["visible_s"].(float64) < 60 ||
+		int(p["visible_s"].(float64)+0.5) != int(end.Sub(start).Seconds()+0.5) {
+		t.Errorf("12 Aug 2026: %v", p)
+	}
+	if h["visible_s"] != 0.0 || h["visible_start"] != nil || h["visible_end"] != nil {
+		t.Errorf("26 Jan 2028: %v", h)
+	}
+	_, flat := eventKeys(t, "--lat", "47.05", "--lon", "11.2", "--tz", "Europe/Vienna", "--kinds", "solar-eclipse", "--from", "2026-08-01", "--to", "2026-08-31")
+	if len(flat) != 1 || flat[0]["visible_s"] != nil {
+		t.Errorf("a flat horizon: %v", flat)
+	}
+}

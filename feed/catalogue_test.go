@@ -896,3 +896,54 @@ func TestDarkWindowOverSkyline(t *testing.T) {
 		}
 	}
 }
+
+// At a site with a skyline the texts speak of the skyline, not the flat
+// horizon: a date on which the Sun stays behind it (78.2° N in February,
+// an 8° skyline to the south; over the flat horizon the Sun is back from
+// mid-February at that latitude) is "No direct Sun today", not polar
+// night, and the daily summary says it once; a date under the midnight Sun
+// "stays over the skyline"; a photoperiod threshold is one of direct Sun.
+func TestSkylineNoteTexts(t *testing.T) {
+	s := site(t, "polar", 78.2, 15.6, "Arctic/Longyearbyen")
+	s.Skyline = [][2]float64{{0, 3}, {90, 6}, {180, 8}, {270, 2}}
+	sk := sky(t, "2027-02-01", "2027-06-30")
+	entries := func(first, last string, kinds ...string) []Entry {
+		var specs []config.KindSpec
+		for _, k := range mustKinds(t, kinds...) {
+			specs = append(specs, config.KindSpec{Kind: k})
+		}
+		es, err := sk.Entries(context.Background(), s, "f", specs, date(first), date(last))
+		if err != nil {
+			t.Fatal(err)
+		}
+		return es
+	}
+	titles := func(es []Entry) string {
+		var out []string
+		for _, e := range es {
+			out = append(out, e.Title+" | "+e.Description)
+		}
+		return strings.Join(out, "\n")
+	}
+	feb := titles(entries("2027-02-20", "2027-02-20", "sunrise", "sunset", "daily-summary"))
+	for _, want := range []string{"No direct Sun today: the Sun stays behind the skyline", "The Sun does not get over the site's skyline all day", "Direct Sun 0 min"} {
+		if !strings.Contains(feb, want) {
+			t.Errorf("20 February lacks %q:\n%s", want, feb)
+		}
+	}
+	if strings.Contains(feb, "Polar night") || strings.Count(feb, "No direct Sun today: the Sun stays behind the skyline.\n") != 1 {
+		t.Errorf("20 February:\n%s", feb)
+	}
+	jun := titles(entries("2027-06-20", "2027-06-20", "sunrise"))
+	if !strings.Contains(jun, "The Sun stays over the skyline all day: no sunset today") {
+		t.Errorf("20 June:\n%s", jun)
+	}
+	mar := titles(entries("2027-03-01", "2027-04-30", "photoperiod:12h"))
+	if !strings.Contains(mar, "Direct Sun rising past 12 h") || !strings.Contains(mar, "the Sun is over the site's skyline for 1") {
+		t.Errorf("photoperiod over the skyline:\n%s", mar)
+	}
+	one := titles(entries("2027-02-20", "2027-02-20", "photoperiod:12h"))
+	if !strings.HasPrefix(one, "Direct Sun stays below 12 h on 20 February 2027 (longest 0 h, 20 February)") {
+		t.Errorf("one date's photoperiod note: %s", one)
+	}
+}

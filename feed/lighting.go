@@ -293,6 +293,9 @@ func (w *entryWriter) lightingText(spec config.KindSpec) *lightingText {
 	target := amount(spec.Kind.DayLength)
 	lt := &lightingText{key: key, target: target, natural: "Natural day (sunrise to sunset) ",
 		site: " at " + w.site.where + "; target photoperiod " + target + ".\n"}
+	if spec.Natural != config.NaturalCivil && len(w.site.Skyline) > 0 {
+		lt.natural = "Natural day (direct Sun over the site's skyline) "
+	}
 	if spec.Natural == config.NaturalCivil {
 		lt.natural = "Natural day (civil dawn to civil dusk) "
 		lt.closing = "Civil twilight is counted as natural light (common practice: twilight still drives photoperiod responses).\n"

@@ -299,10 +299,14 @@ func describeMoonNote(s *siteInfo, n Note) (string, string) {
 	switch n.Kind.Name {
 	case "moonrise", "moonset":
 		verb := map[string]string{"moonrise": "rise", "moonset": "set"}[n.Kind.Name]
-		switch n.State {
-		case astro.AlwaysAbove:
+		switch {
+		case n.State == astro.AlwaysAbove && len(s.Skyline) > 0:
+			title = "The Moon stays over the skyline all day"
+		case n.State == astro.AlwaysBelow && len(s.Skyline) > 0:
+			title = "The Moon stays behind the skyline all day"
+		case n.State == astro.AlwaysAbove:
 			title = "The Moon stays above the horizon all day"
-		case astro.AlwaysBelow:
+		case n.State == astro.AlwaysBelow:
 			title = "The Moon stays below the horizon all day"
 		default:
 			title = fmt.Sprintf("No moon%s today", verb)

@@ -372,12 +372,16 @@ func describe(s *siteInfo, e Event) (string, string) {
 			ToSecond(e.Start).UTC().Format("2006-01-02 15:04:05"), e.Distance, thousands(e.Distance*149597870.7))
 		b.WriteString(FutureNote(e.Start))
 	case "photoperiod":
-		if e.Direction == astro.Rising {
-			title = fmt.Sprintf("Day length rising past %s", amount(e.Kind.DayLength))
-		} else {
-			title = fmt.Sprintf("Day length falling below %s", amount(e.Kind.DayLength))
+		what, how := "Day length", "the Sun is up for %s (%s from the day before), sunrise to sunset"
+		if e.DirectSun {
+			what, how = "Direct Sun", "the Sun is over the site's skyline for %s (%s from the day before)"
 		}
-		fmt.Fprintf(&b, "%s today at %s: the Sun is up for %s (%s from the day before), sunrise to sunset.\n"+
+		if e.Direction == astro.Rising {
+			title = fmt.Sprintf("%s rising past %s", what, amount(e.Kind.DayLength))
+		} else {
+			title = fmt.Sprintf("%s falling below %s", what, amount(e.Kind.DayLength))
+		}
+		fmt.Fprintf(&b, "%s today at %s: "+how+".\n"+
 			"Lighting programs for greenhouses and livestock are set by this threshold.",
 			title, s.Name, hm(e.DayLength), Change(e.DayChange))
 	case "solar-eclipse", "lunar-eclipse":
@@ -585,9 +589,14 @@ func describeNote(s *siteInfo, n Note) (string, string) {
 	}
 	switch n.Family {
 	case "sun-horizon":
-		if above {
+		switch {
+		case len(s.Skyline) > 0 && above:
+			title, desc = "The Sun stays over the skyline all day: no sunset today", "The Sun stays over the site's skyline all day and night"
+		case len(s.Skyline) > 0:
+			title, desc = "No direct Sun today: the Sun stays behind the skyline", "The Sun does not get over the site's skyline all day"
+		case above:
 			title, desc = "Midnight sun: the Sun does not set today", "The Sun stays above the horizon all day and night"
-		} else {
+		default:
 			title, desc = "Polar night: the Sun does not rise today", "The Sun stays below the horizon all day"
 		}
 	case "civil", "nautical", "astronomical":
@@ -645,10 +654,17 @@ func NotReachedText(n Note) string {
 		span = "stays below"
 	}
 	when := fmt.Sprintf("%s %s here", verb, target)
-	if n.Last.Sub(n.Date) < 364*24*time.Hour {
+	switch {
+	case n.Last.Equal(n.Date):
+		when = fmt.Sprintf("%s %s on %s", span, target, n.Date.Format("2 January 2006"))
+	case n.Last.Sub(n.Date) < 364*24*time.Hour:
 		when = fmt.Sprintf("%s %s from %s to %s", span, target, n.Date.Format("2 January"), n.Last.Format("2 January 2006"))
 	}
-	return fmt.Sprintf("Day length %s (%s %s, %s)", when, extreme, hmText(n.DayLength), n.ExtremeDate.Format("2 January"))
+	what := "Day length"
+	if n.DirectSun {
+		what = "Direct Sun"
+	}
+	return fmt.Sprintf("%s %s (%s %s, %s)", what, when, extreme, hmText(n.DayLength), n.ExtremeDate.Format("2 January"))
 }
 
 // shortHours writes a duration as "14 h" or "14 h 30 min".

@@ -489,11 +489,15 @@ func details(e *feed.Event, loc *time.Location) string {
 	if e.Direction != 0 && (e.Kind.Name == "sun-altitude" || e.Kind.Name == "photoperiod" || e.Kind.Name == "noon-clear") {
 		parts = append(parts, direction(*e))
 	}
+	length := "day length "
+	if e.DirectSun {
+		length = "direct Sun "
+	}
 	switch e.Kind.Name {
 	case "sunrise", "sunset", "photoperiod", config.KindLighting:
-		parts = append(parts, "day length "+words(e.DayLength.Round(time.Second)))
+		parts = append(parts, length+words(e.DayLength.Round(time.Second)))
 	case "daily-summary":
-		parts = append(parts, "day length "+words(e.DayLength.Round(time.Second))+", change "+feed.Change(e.DayChange))
+		parts = append(parts, length+words(e.DayLength.Round(time.Second))+", change "+feed.Change(e.DayChange))
 	}
 	if hasAzimuth(*e) {
 		parts = append(parts, fmt.Sprintf("azimuth %.1f° (%s)", e.Azimuth, astro.CompassPoint(e.Azimuth)))

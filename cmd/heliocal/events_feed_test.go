@@ -296,6 +296,11 @@ func TestDirectSunInEveryForm(t *testing.T) {
 	if len(doc.Events) != 2 {
 		t.Errorf("%d events, want sunrise and the summary", len(doc.Events))
 	}
+	// the table says what the length is
+	code, out, errOut = runCLI(t, append([]string{"events", "--site", "brackenfold", "--kinds", "sunrise,daily-summary"}, args...)...)
+	if code != 0 || strings.Count(out, "direct Sun 5 h") != 2 || strings.Contains(out, "day length") {
+		t.Errorf("table (exit %d, %s):\n%s", code, errOut, out)
+	}
 	for _, a := range [][]string{{"--feed", "brackenfold-sun"}, {"--site", "brackenfold", "--kinds", "sunrise,sunset,daily-summary"}} {
 		code, out, errOut = runCLI(t, append(append([]string{"events", "--format", "csv"}, a...), args...)...)
 		rows, err := csv.NewReader(strings.NewReader(out)).ReadAll()

@@ -59,6 +59,18 @@ func TestRefractionScaling(t *testing.T) {
 	if want := wantDh / rate; math.Abs(got-want) > 0.01*want {
 		t.Errorf("cold sunrise earlier by %.1f s, want %.1f s", got, want)
 	}
+	// The figures the README gives for 48.2° N on 15 January 2027: a cold
+	// morning's sunrise 34 s earlier, its sunset 34 s later, the day 67 s
+	// longer; a hot one (35 °C, 1000 hPa) 22 s later.
+	hot := std
+	hot.Pressure, hot.Temperature = 1000, 35
+	c, _ := e.SunCrossings(hot, hot.RiseSetAltitude(), day, day.Add(24*time.Hour))
+	rise, set := got, b[1].Time.Sub(a[1].Time).Seconds()
+	later := c[0].Time.Sub(a[0].Time).Seconds()
+	if math.Round(rise) != 34 || math.Round(set) != 34 || math.Round(rise+set) != 67 || math.Round(later) != 22 {
+		t.Errorf("cold sunrise %.1f s earlier, sunset %.1f s later, day %.3f s longer; hot sunrise %.3f s later; README: 34, 34, 67, 22",
+			rise, set, rise+set, later)
+	}
 	hill, coldHill := Observer{Horizon: 3}, Observer{Horizon: 3, Pressure: 1030, Temperature: -20}
 	bennett := hill.Horizon - 16.0/60 - hill.RiseSetAltitude()
 	if d := hill.Horizon - 16.0/60 - coldHill.RiseSetAltitude() - bennett*cold.RefractionFactor(); math.Abs(d) > 1e-12 {

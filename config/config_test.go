@@ -155,6 +155,7 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-bool.yaml", "feeds[0].utc", `"yes"`, "must be true or false", "", 0},
 		{"bad-days-fraction.yaml", "feeds[0].days_ahead", "36.5", "must be a whole number", "", 0},
 		{"duplicate-kind.yaml", "feeds[0].kinds[1]", "june-solstice", `listed twice (also in feeds[0].kinds[0], "seasons")`, "", 0},
+		{"duplicate-golden-hour.yaml", "feeds[0].kinds[1]", "golden-hour", "listed twice (also in feeds[0].kinds[0])", `"sun-band:-4..8"`, 0},
 		{"bad-title-control.yaml", "feeds[0].title", "North\rSun", "control character", "", 0},
 		{"bad-sites-shape.yaml", "sites", "", "must be a list, not a number", "", 0},
 		{"bad-types.toml", "sites[0].latitude", `"95"`, "must be a number, not text", "", 2},

@@ -531,7 +531,11 @@ func (f *Feed) validate(ps *problems, p string) {
 				if prevKind := f.Kinds[prev].Kind; prevKind != m {
 					what += fmt.Sprintf(", %q", prevKind.String())
 				}
-				ps.add(kp, ks.Kind.String(), what+")", "remove one, or give one an offset")
+				hint := "remove one, or give one an offset"
+				if m.Name == "golden-hour" || m.Name == "blue-hour" {
+					hint += `; for a second band of the Sun give it as a kind of its own, e.g. "sun-band:-4..8"`
+				}
+				ps.add(kp, ks.Kind.String(), what+")", hint)
 				break
 			}
 			seen[k] = j

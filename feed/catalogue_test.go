@@ -947,3 +947,22 @@ func TestSkylineNoteTexts(t *testing.T) {
 		t.Errorf("one date's photoperiod note: %s", one)
 	}
 }
+
+// A band the Sun passes through once a day, through noon, is named so
+// ("Sun between +15° and +89° (through midday)"), not "all day, low Sun",
+// which stays golden hour's name for a winter Sun that never climbs out of
+// it (at 69.65° N on 20 January the noon Sun is about 1° high).
+func TestBandThroughMidday(t *testing.T) {
+	s := site(t, "havana", 23.13, -82.38, "America/Havana")
+	sk := sky(t, "2027-03-14", "2027-03-14")
+	es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{{Kind: mustKinds(t, "sun-band:15..89")[0]}}, date("2027-03-14"), date("2027-03-14"))
+	if err != nil || len(es) != 1 || es[0].Title != "Sun between +15° and +89° (through midday)" {
+		t.Fatalf("%+v, %v", es, err)
+	}
+	n := site(t, "tromso", 69.65, 18.96, "Europe/Oslo")
+	sk = sky(t, "2027-01-20", "2027-01-20")
+	es, err = sk.Entries(context.Background(), n, "f", []config.KindSpec{{Kind: mustKinds(t, "golden-hour")[0]}}, date("2027-01-20"), date("2027-01-20"))
+	if err != nil || len(es) != 1 || es[0].Title != "Golden hour (all day, low Sun)" {
+		t.Fatalf("%+v, %v", es, err)
+	}
+}

@@ -335,11 +335,15 @@ func describe(s *siteInfo, e Event) (string, string) {
 			"golden-hour": "low, warm sunlight and long shadows, for photography and events",
 			"blue-hour":   "no direct sunlight; an even, deep blue sky, for photography with the lights on",
 		}[e.Kind.Name]
+		part := partName(e.Part)
 		if e.Kind.Name == config.KindSunBand {
 			title = "Sun between " + lo + " and " + hi
 			light = "a band of the Sun's altitude chosen for this feed"
+			if e.Part == "all-day" { // one span through noon: a high band's usual day, not a low Sun
+				part = "through midday"
+			}
 		}
-		title = title + " (" + partName(e.Part) + ")"
+		title = title + " (" + part + ")"
 		b.WriteString(title + " from " + at + DayMark(e.Start, e.Date, loc) + " to " + localClock(e.End, loc) + DayMark(e.End, e.Date, loc) + " (" + hm(ToSecond(e.End).Sub(ToSecond(e.Start))) +
 			").\nThe Sun's centre is between " + between(e.Low, e.High) + ": " + light + ".")
 		if e.High > -1 {

@@ -97,6 +97,19 @@ func TestCheckJSON(t *testing.T) {
 			t.Errorf("feed %s (%s) not in the text form", f.ID, size(f.Bytes))
 		}
 	}
+	// Each site's horizon: one altitude, or the skyline (config/demo.yaml).
+	for _, s := range r.Sites {
+		switch s.ID {
+		case "cairnmoor":
+			if s.Horizon != -0.8 || s.Skyline != nil || !strings.Contains(text, "-0.8°") {
+				t.Errorf("cairnmoor horizon %+v", s)
+			}
+		case "brackenfold":
+			if len(s.Skyline) != 8 || s.Skyline[3] != [2]float64{176, 25} || !strings.Contains(text, "skyline 3–25° (8 points)") {
+				t.Errorf("brackenfold skyline %+v", s)
+			}
+		}
+	}
 
 	code, out, errOut = runStdin(t, readConfig(t, "every-problem.yaml"), "check", "--config", "-", "--format", "json")
 	if code != exitInput || errOut != "" {

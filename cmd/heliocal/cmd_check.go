@@ -5,6 +5,8 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"path/filepath"
+	"strconv"
 	"strings"
 	"text/tabwriter"
 	"time"
@@ -64,13 +66,35 @@ type checkProblem struct {
 }
 
 type checkSite struct {
-	ID               string  `json:"id"`
-	Name             string  `json:"name"`
-	Latitude         float64 `json:"latitude"`
-	Longitude        float64 `json:"longitude"`
-	Elevation        float64 `json:"elevation_m"`
-	TimeZone         string  `json:"timezone"`
-	TimeZoneInferred bool    `json:"timezone_inferred"`
+	ID        string  `json:"id"`
+	Name      string  `json:"name"`
+	Latitude  float64 `json:"latitude"`
+	Longitude float64 `json:"longitude"`
+	Elevation float64 `json:"elevation_m"`
+	Horizon   float64 `json:"horizon_deg"`
+	// Skyline is the horizon per direction ([azimuth, altitude] points),
+	// SkylineFile the CSV file it was read from.
+	Skyline          [][2]float64 `json:"skyline,omitempty"`
+	SkylineFile      string       `json:"skyline_file,omitempty"`
+	TimeZone         string       `json:"timezone"`
+	TimeZoneInferred bool         `json:"timezone_inferred"`
+}
+
+// horizonText is a site's horizon in the table: "0°", "1.5°", or
+// "skyline 1–14° (8 points, hills.csv)".
+func horizonText(s checkSite) string {
+	if len(s.Skyline) == 0 {
+		return strconv.FormatFloat(s.Horizon, 'f', -1, 64) + "°"
+	}
+	lo, hi := s.Skyline[0][1], s.Skyline[0][1]
+	for _, p := range s.Skyline {
+		lo, hi = min(lo, p[1]), max(hi, p[1])
+	}
+	from := ""
+	if s.SkylineFile != "" {
+		from = ", " + filepath.Base(s.SkylineFile)
+	}
+	return fmt.Sprintf("skyline %s–%s° (%d points%s)", strconv.FormatFloat(lo, 'f', -1, 64), strconv.FormatFloat(hi, 'f', -1, 64), len(s.Skyline), from)
 }
 
 type checkFeed struct {
@@ -160,7 +184,8 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 	var notes []string
 	for _, s := range cfg.Sites {
 		r.Sites = append(r.Sites, checkSite{ID: s.ID, Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude,
-			Elevation: s.Elevation, TimeZone: s.TimeZone.Name(), TimeZoneInferred: s.ZoneInferred})
+			Elevation: s.Elevation, Horizon: s.Horizon, Skyline: s.Skyline, SkylineFile: s.HorizonFile,
+			TimeZone: s.TimeZone.Name(), TimeZoneInferred: s.ZoneInferred})
 	}
 	notes = zoneNotes(cfg, now)
 	limit := cfg.Service.MaxFeedBytes
@@ -208,13 +233,13 @@ func writeCheckText(g *globals, r *checkReport, notes []string) {
 	w := g.stdout
 	fmt.Fprintf(w, "configuration: %s (valid)\n\n", r.Configuration)
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
-	fmt.Fprintln(tw, "SITE\tNAME\tLATITUDE\tLONGITUDE\tELEVATION\tZONE")
+	fmt.Fprintln(tw, "SITE\tNAME\tLATITUDE\tLONGITUDE\tELEVATION\tHORIZON\tZONE")
 	for _, s := range r.Sites {
 		zone := s.TimeZone
 		if s.TimeZoneInferred {
 			zone += " (from the coordinates)"
 		}
-		fmt.Fprintf(tw, "%s\t%s\t%.4f\t%.4f\t%g m\t%s\n", s.ID, s.Name, s.Latitude, s.Longitude, s.Elevation, zone)
+		fmt.Fprintf(tw, "%s\t%s\t%.4f\t%.4f\t%g m\t%s\t%s\n", s.ID, s.Name, s.Latitude, s.Longitude, s.Elevation, horizonText(s), zone)
 	}
 	tw.Flush()
 	for _, line := range notes {

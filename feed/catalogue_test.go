@@ -934,6 +934,10 @@ func TestSkylineNoteTexts(t *testing.T) {
 	if strings.Contains(feb, "Polar night") || strings.Count(feb, "No direct Sun today: the Sun stays behind the skyline.\n") != 1 {
 		t.Errorf("20 February:\n%s", feb)
 	}
+	moon := titles(entries("2027-02-03", "2027-02-03", "moonrise"))
+	if !strings.HasPrefix(moon, "The Moon stays behind the skyline all day") {
+		t.Errorf("3 February, no moonrise: %s", moon)
+	}
 	jun := titles(entries("2027-06-20", "2027-06-20", "sunrise"))
 	if !strings.Contains(jun, "The Sun stays over the skyline all day: no sunset today") {
 		t.Errorf("20 June:\n%s", jun)

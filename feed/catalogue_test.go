@@ -938,6 +938,9 @@ func TestSkylineNoteTexts(t *testing.T) {
 	if !strings.HasPrefix(moon, "The Moon stays behind the skyline all day") {
 		t.Errorf("3 February, no moonrise: %s", moon)
 	}
+	if lamps := titles(entries("2027-02-20", "2027-02-20", "lighting:12h")); !strings.Contains(lamps, "Supplemental lighting (no direct Sun, centred on solar noon)") {
+		t.Errorf("lamps on a date without direct Sun: %s", lamps)
+	}
 	jun := titles(entries("2027-06-20", "2027-06-20", "sunrise"))
 	if !strings.Contains(jun, "The Sun stays over the skyline all day: no sunset today") {
 		t.Errorf("20 June:\n%s", jun)

@@ -327,6 +327,9 @@ func (lt *lightingText) appendDescription(dst []byte, s *siteInfo, e Event) ([]b
 	part := e.Part
 	if part == partPolarNight {
 		part = "polar night, centred on solar noon"
+		if e.DirectSun {
+			part = "no direct Sun, centred on solar noon"
+		}
 	}
 	b := append(append(append(dst, "Supplemental lighting ("...), part...), "): lamps on at "...)
 	b = appendClock(b, e.Start, loc)

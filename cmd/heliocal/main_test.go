@@ -160,6 +160,20 @@ func TestEventsAzimuth(t *testing.T) {
 	if !strings.Contains(out, "azimuth_deg,") || !strings.Contains(out, ",52.19,") {
 		t.Errorf("CSV without the azimuth column or the sunrise azimuth 52.19:\n%s", out)
 	}
+	// In words, the nearest of the 16 compass points (22.5° each; common
+	// practice): north-east and north-west, in the table and in the
+	// calendar text.
+	code, out, errOut = runCLI(t, args...)
+	if code != 0 || !strings.Contains(out, "azimuth 52.2° (north-east)") || !strings.Contains(out, "azimuth 307.8° (north-west)") {
+		t.Errorf("table (exit %d, %s):\n%s", code, errOut, out)
+	}
+	code, out, errOut = runCLI(t, append(args, "--format", "ics")...)
+	text := strings.NewReplacer("\r\n ", "", "\\,", ",").Replace(out) // unfolded, commas unescaped
+	for _, w := range []string{"appears at 52°, north-east", "disappears at 308°, north-west", "The Moon rises at ", "The Moon sets at "} {
+		if code != 0 || !strings.Contains(text, w) {
+			t.Errorf("calendar text lacks %q (exit %d, %s)", w, code, errOut)
+		}
+	}
 }
 
 // Exit codes: 2 for bad input, each message naming the flag or field and

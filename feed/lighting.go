@@ -142,6 +142,12 @@ func (c *collector) lighting(k config.Kind) error {
 				noon = midnight(d, c.p.Location).Add(12 * time.Hour)
 			}
 			ps[0] = period(partPolarNight, noon.Add(-short/2), noon.Add(short-short/2))
+			if lost := short - ps[0].Lamp; lost > 0 {
+				// cut at one end: moved towards the other, as far as its limit allows
+				p := period(partPolarNight, ps[0].Start.Add(-lost), ps[0].End.Add(lost))
+				p.MadeUp, p.MadeUpWhy = p.Lamp-ps[0].Lamp, "clipped"
+				ps[0] = p
+			}
 		case lamps == config.LampsMorning:
 			ps[0] = morning(short)
 		case lamps == config.LampsBoth:
@@ -330,6 +336,9 @@ func (lt *lightingText) appendDescription(dst []byte, s *siteInfo, e Event) ([]b
 		if e.DirectSun {
 			part = "no direct Sun, centred on solar noon"
 		}
+		if e.Clipped {
+			part = strings.Replace(part, "centred on solar noon", "as near solar noon as the limits allow", 1)
+		}
 	}
 	b := append(append(append(dst, "Supplemental lighting ("...), part...), "): lamps on at "...)
 	b = appendClock(b, e.Start, loc)
@@ -341,6 +350,11 @@ func (lt *lightingText) appendDescription(dst []byte, s *siteInfo, e Event) ([]b
 		other = partEvening
 	}
 	switch {
+	case e.Part == partPolarNight && e.Clipped && e.Short:
+		b = append(b, lt.clipped...)
+	case e.Part == partPolarNight && e.Clipped:
+		b = append(append(append(append(b, "Moved within the limits ("...), lt.limits...), "): the target of "...), lt.target...)
+		b = append(b, " is reached.\n"...)
 	case e.MadeUp > 0 && e.MadeUpWhy == "minimum":
 		b = append(appendHM(append(b, "All of the shortfall in one period: the "...), e.MadeUp), " "...)
 		b = append(append(append(append(b, other...), " period would be under the minimum of "...), lt.minimum...), ".\n"...)
@@ -350,6 +364,7 @@ func (lt *lightingText) appendDescription(dst []byte, s *siteInfo, e Event) ([]b
 		b = append(append(b, lt.limits...), ").\n"...)
 	}
 	switch {
+	case e.Part == partPolarNight:
 	case e.Clipped && e.Short:
 		b = append(b, lt.clipped...)
 	case e.Clipped:

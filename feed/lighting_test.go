@@ -404,3 +404,36 @@ func TestLightingMinimum(t *testing.T) {
 		t.Fatalf("%+v, want one evening period of about 20 min", es)
 	}
 }
+
+// TestLightingPolarNightLimits checks polar night at 80° N, 0° on
+// 21 December 2015 (USNO: the Sun does not rise; row sun-0169 of
+// testdata/reference/sun-times.csv) under lamp limits: the 16 h centred on
+// solar noon (about 03:58–19:58 UT) start at earliest_on 06:00 instead and
+// run on to 22:00, so the target is still reached; with latest_off 21:00
+// as well they run 06:00–21:00, 15 h, and the entry says the target is not
+// reached.
+func TestLightingPolarNightLimits(t *testing.T) {
+	s := site(t, "lat80", 80, 0, "UTC")
+	sk := sky(t, "2015-01-01", "2015-12-31")
+	run := func(on, off string) Entry {
+		spec := lightingSpec(t, "lighting:16h", func(ks *config.KindSpec) { ks.EarliestOn, ks.LatestOff = on, off })
+		es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date("2015-12-21"), date("2015-12-21"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(es) != 1 || es[0].Facts.Part != partPolarNight {
+			t.Fatalf("%+v, want one polar-night period", es)
+		}
+		return es[0]
+	}
+	e := run("06:00", "")
+	if e.Start.Format("15:04") != "06:00" || e.End.Format("15:04") != "22:00" || e.Facts.Short ||
+		!strings.Contains(e.Title, "to reach 16 h") || !strings.Contains(e.Description, "Moved within the limits") {
+		t.Errorf("%s–%s %q short %v:\n%s", e.Start, e.End, e.Title, e.Facts.Short, e.Description)
+	}
+	e = run("06:00", "21:00")
+	if e.Start.Format("15:04") != "06:00" || e.End.Format("15:04") != "21:00" || !e.Facts.Short ||
+		!strings.Contains(e.Title, "(15 h 00 min; 16 h not reached)") {
+		t.Errorf("%s–%s %q short %v", e.Start, e.End, e.Title, e.Facts.Short)
+	}
+}

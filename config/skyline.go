@@ -156,3 +156,40 @@ func readSkylineCSV(name string) ([][2]float64, error) {
 	}
 	return pts, nil
 }
+
+// HorizonFromText reads a horizon written on a command line (flag names
+// the flag, e.g. "--horizon"): one altitude ("1.5"), skyline points
+// "azimuth:altitude" separated by commas ("0:2,90:8,180:1,270:4"), or the
+// name of a CSV file of them, read from the working directory. It sets
+// Horizon or Skyline (and HorizonFile) as the configuration's horizon key
+// does, with the same checks; the error names the flag and the value.
+func (s *Site) HorizonFromText(flag, v string) error {
+	t := strings.TrimSpace(v)
+	if x, err := strconv.ParseFloat(t, 64); err == nil {
+		if !(x >= MinHorizon && x <= MaxHorizon) {
+			return FieldError{Path: flag, Value: v, Msg: fmt.Sprintf("must be within %g..%g degrees", MinHorizon, MaxHorizon),
+				Hint: "the altitude of the visible horizon, or skyline points azimuth:altitude, e.g. 0:2,90:8,180:1"}
+		}
+		s.Horizon, s.HorizonValue = x, x
+		return nil
+	}
+	s.HorizonValue = t
+	if strings.Contains(t, ":") {
+		var pts []any
+		for j, item := range strings.Split(t, ",") {
+			a, b, ok := strings.Cut(strings.TrimSpace(item), ":")
+			az, err1 := strconv.ParseFloat(strings.TrimSpace(a), 64)
+			alt, err2 := strconv.ParseFloat(strings.TrimSpace(b), 64)
+			if !ok || err1 != nil || err2 != nil {
+				return FieldError{Path: fmt.Sprintf("%s[%d]", flag, j), Value: item, Msg: "must be azimuth:altitude, two numbers",
+					Hint: "e.g. --horizon 0:2,90:8,180:1,270:4 (degrees; azimuth from the north through the east)"}
+			}
+			pts = append(pts, []any{az, alt})
+		}
+		s.HorizonValue = pts
+	}
+	if ps := s.resolveHorizon(flag, ""); len(ps) > 0 {
+		return ps[0]
+	}
+	return nil
+}

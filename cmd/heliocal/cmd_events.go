@@ -24,7 +24,7 @@ type eventsOptions struct {
 	kindsSet  bool              // --kinds given
 	lat, lon  float64
 	elev      float64
-	horizon   float64
+	horizon   string // a number, azimuth:altitude points, or a CSV file name
 	tz        string
 	from, to  string
 	kinds     string
@@ -90,7 +90,7 @@ bytes as the published feed for the same window).` + exitStatusHelp,
 	f.Float64Var(&o.lat, "lat", 0, "latitude in degrees, north positive (−90..90)")
 	f.Float64Var(&o.lon, "lon", 0, "longitude in degrees, east positive (−180..180)")
 	f.Float64Var(&o.elev, "elev", 0, "elevation in metres above sea level")
-	f.Float64Var(&o.horizon, "horizon", 0, "altitude of the visible horizon in degrees (hills)")
+	f.StringVar(&o.horizon, "horizon", "0", "altitude of the visible horizon in degrees (hills), or a skyline: azimuth:altitude points (0:2,90:8,180:1,270:4) or a CSV file of azimuth,altitude lines")
 	f.Float64Var(&o.pressureV, "pressure", 0, "air pressure at the place in hPa, for refraction (default: standard refraction)")
 	f.Float64Var(&o.temperatureV, "temperature", 0, "air temperature at the place in °C, for refraction (default: standard refraction)")
 	f.StringVar(&o.tz, "tz", "", "IANA time zone of the place, e.g. Europe/Vienna (default: the zone in force at --lat/--lon)")
@@ -139,8 +139,11 @@ func eventsPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 	case !o.lonGiven:
 		return nil, badInput("--lon: missing: give both --lat and --lon (--lat %v was given)", o.lat)
 	}
-	s := &config.Site{ID: "place", Latitude: o.lat, Longitude: o.lon, Elevation: o.elev, Horizon: o.horizon,
+	s := &config.Site{ID: "place", Latitude: o.lat, Longitude: o.lon, Elevation: o.elev,
 		Pressure: o.pressure, Temperature: o.temperature}
+	if err := s.HorizonFromText("--horizon", o.horizon); err != nil {
+		return nil, badInput("%v", err)
+	}
 	switch {
 	case math.IsNaN(o.lat) || o.lat < -90 || o.lat > 90:
 		return nil, badInput("--lat: %v: must be within -90..90 degrees", o.lat)
@@ -148,8 +151,6 @@ func eventsPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 		return nil, badInput("--lon: %v: must be within -180..180 degrees (east positive)", o.lon)
 	case math.IsNaN(o.elev) || o.elev < -500 || o.elev > 9000:
 		return nil, badInput("--elev: %v: must be within -500..9000 metres", o.elev)
-	case math.IsNaN(o.horizon) || o.horizon < -5 || o.horizon > 45:
-		return nil, badInput("--horizon: %v: must be within -5..45 degrees", o.horizon)
 	case o.pressure != nil && !(*o.pressure >= config.MinPressure && *o.pressure <= config.MaxPressure):
 		return nil, badInput("--pressure: %v: must be within %g..%g hPa (the air pressure at the place)", *o.pressure, config.MinPressure, config.MaxPressure)
 	case o.temperature != nil && !(*o.temperature >= config.MinTemperature && *o.temperature <= config.MaxTemperature):

@@ -6,6 +6,7 @@ import (
 	"os"
 	"path/filepath"
 	"reflect"
+	"slices"
 	"strconv"
 	"strings"
 	"testing"
@@ -322,6 +323,56 @@ func TestDirectSunInEveryForm(t *testing.T) {
 		}
 		if n != 3 {
 			t.Errorf("%v CSV: %d rows of sunrise, sunset and the summary", a, n)
+		}
+	}
+}
+
+// --horizon takes a skyline too: azimuth:altitude points, or a CSV file in
+// the working directory; the events equal those of a configured site with
+// the same skyline (the demo's brackenfold), and bad values exit 2 naming
+// --horizon and the value.
+func TestEventsHorizonSkylineFlag(t *testing.T) {
+	args := []string{"events", "--kinds", "sunrise,sunset,sun-hidden", "--from", "2027-12-20", "--to", "2027-12-21", "--format", "json"}
+	_, want, _ := runCLI(t, append(args, "--site", "brackenfold")...)
+	place := []string{"--lat", "47.05", "--lon", "11.2", "--elev", "900", "--temperature", "-5", "--tz", "Europe/Vienna"}
+	dir := t.TempDir()
+	if err := os.WriteFile(filepath.Join(dir, "ridge.csv"), []byte("azimuth,altitude\n0,3\n100,12\n150,4\n176,25\n184,25\n190,4\n260,15\n300,3\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	t.Chdir(dir)
+	events := func(out string) []string {
+		var doc struct {
+			Events []struct{ Kind, Start, End string }
+		}
+		if err := json.Unmarshal([]byte(out), &doc); err != nil {
+			t.Fatalf("%v: %s", err, out)
+		}
+		var s []string
+		for _, e := range doc.Events {
+			s = append(s, e.Kind+" "+e.Start+" "+e.End)
+		}
+		return s
+	}
+	w := events(want)
+	if len(w) != 6 { // sunrise, the noon Sun behind the 25° peak, sunset; two dates
+		t.Fatalf("brackenfold: %v", w)
+	}
+	for _, h := range []string{"0:3,100:12,150:4,176:25,184:25,190:4,260:15,300:3", "ridge.csv"} {
+		code, out, errOut := runCLI(t, append(append(args, place...), "--horizon", h)...)
+		if got := events(out); code != 0 || !slices.Equal(got, w) {
+			t.Errorf("--horizon %s (exit %d, %s): %v, want %v", h, code, errOut, got, w)
+		}
+	}
+	for h, want := range map[string]string{
+		"50":            "--horizon: 50: must be within -5..45 degrees",
+		"0:2,90:x":      "--horizon[1]: 90:x: must be azimuth:altitude",
+		"0:2,90:60":     "--horizon[1]: \"[90, 60]\": altitude must be within -5..45 degrees",
+		"missing.csv":   "--horizon: missing.csv: no such skyline file",
+		"0:2,360:3,0:4": "--horizon[1]",
+	} {
+		code, _, errOut := runCLI(t, "events", "--lat", "47", "--lon", "11", "--tz", "UTC", "--horizon", h)
+		if code != exitInput || !strings.Contains(errOut, want) {
+			t.Errorf("--horizon %s: exit %d, %q, want %q", h, code, errOut, want)
 		}
 	}
 }

@@ -90,7 +90,7 @@ bytes as the published feed for the same window).` + exitStatusHelp,
 	f.Float64Var(&o.lat, "lat", 0, "latitude in degrees, north positive (−90..90)")
 	f.Float64Var(&o.lon, "lon", 0, "longitude in degrees, east positive (−180..180)")
 	f.Float64Var(&o.elev, "elev", 0, "elevation in metres above sea level")
-	f.StringVar(&o.horizon, "horizon", "0", "altitude of the visible horizon in degrees (hills), or a skyline: azimuth:altitude points (0:2,90:8,180:1,270:4) or a CSV file of azimuth,altitude lines")
+	f.StringVar(&o.horizon, "horizon", "", "altitude of the visible horizon in degrees (hills; default 0), or a skyline: points azimuth:altitude, e.g. 0:2,90:8,180:1, or a CSV file of them")
 	f.Float64Var(&o.pressureV, "pressure", 0, "air pressure at the place in hPa, for refraction (default: standard refraction)")
 	f.Float64Var(&o.temperatureV, "temperature", 0, "air temperature at the place in °C, for refraction (default: standard refraction)")
 	f.StringVar(&o.tz, "tz", "", "IANA time zone of the place, e.g. Europe/Vienna (default: the zone in force at --lat/--lon)")
@@ -141,8 +141,10 @@ func eventsPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 	}
 	s := &config.Site{ID: "place", Latitude: o.lat, Longitude: o.lon, Elevation: o.elev,
 		Pressure: o.pressure, Temperature: o.temperature}
-	if err := s.HorizonFromText("--horizon", o.horizon); err != nil {
-		return nil, badInput("%v", err)
+	if o.horizon != "" {
+		if err := s.HorizonFromText("--horizon", o.horizon); err != nil {
+			return nil, badInput("%v", err)
+		}
 	}
 	switch {
 	case math.IsNaN(o.lat) || o.lat < -90 || o.lat > 90:

@@ -314,6 +314,9 @@ func noteText(n *feed.Note) string {
 	if n.Kind.Name != config.KindLighting {
 		return stateText(n.State)
 	}
+	if n.Lamp > 0 {
+		return "lamps not scheduled, " + n.Why + ": the target is not reached"
+	}
 	if n.Until.IsZero() {
 		return "no lamps needed to the end of the dates listed"
 	}

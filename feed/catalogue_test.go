@@ -654,9 +654,19 @@ func TestNightDates(t *testing.T) {
 	if !strings.Contains(title, "night of 12–13 February 2027") || !strings.Contains(desc, "+1 day to") || !strings.HasPrefix(desc, "Dark sky on the night of 12–13 February 2027 from 01:") {
 		t.Errorf("title %q, description %q", title, desc)
 	}
+	// a window's length is written as every other duration: "14 h 02 min"
+	e.End = e.Start.Add(14*time.Hour + 2*time.Minute)
+	if title, desc := describe(newSiteInfo(s), e); !strings.HasPrefix(title, "Dark sky, 14 h 02 min, night of") || !strings.Contains(desc, "(14 h 02 min)") {
+		t.Errorf("title %q, description %q", title, desc)
+	}
 	n := Note{Kind: mustKinds(t, "dark-window")[0], Date: date("2027-02-13"), State: astro.AlwaysBelow}
-	if title, _ := describeNote(newSiteInfo(s), n); !strings.HasPrefix(title, "No dark sky on the night of 13–14 February 2027") {
+	title, desc = describeNote(newSiteInfo(s), n)
+	if !strings.HasPrefix(title, "No dark sky on the night of 13–14 February 2027") {
 		t.Errorf("note %q", title)
+	}
+	// the description names the night once, not again as a date
+	if strings.Count(desc, "February") != 1 || !strings.Contains(desc, "night of 13–14 February 2027") {
+		t.Errorf("note's description %q names the night more than once", desc)
 	}
 	for _, c := range []struct {
 		t    string
@@ -951,7 +961,7 @@ func TestSkylineNoteTexts(t *testing.T) {
 		t.Errorf("photoperiod over the skyline:\n%s", mar)
 	}
 	one := titles(entries("2027-02-20", "2027-02-20", "photoperiod:12h"))
-	if !strings.HasPrefix(one, "Direct Sun stays below 12 h on 20 February 2027 (longest 0 h, 20 February)") {
+	if !strings.HasPrefix(one, "Direct Sun stays below 12 h on 20 February 2027 (longest 0 min, 20 February)") {
 		t.Errorf("one date's photoperiod note: %s", one)
 	}
 }

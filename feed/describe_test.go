@@ -146,6 +146,24 @@ func TestDurationWords(t *testing.T) {
 			t.Errorf("hm(%v) = %q, want %q", d, got, want)
 		}
 	}
+	for d, want := range map[time.Duration]string{
+		14*time.Hour + 2*time.Minute: "14 h 02 min", 14*time.Hour + 2*time.Minute + 29*time.Second: "14 h 02 min",
+		14*time.Hour + 2*time.Minute + 30*time.Second: "14 h 03 min", 12 * time.Hour: "12 h 00 min",
+	} {
+		if got := Length(d, time.Minute); got != want {
+			t.Errorf("Length(%v, min) = %q, want %q", d, got, want)
+		}
+	}
+	// an amount from the configuration is written exactly, in the same
+	// units, its zero units at the end left out
+	for d, want := range map[time.Duration]string{
+		time.Hour: "1 h", 90 * time.Minute: "1 h 30 min", 65 * time.Minute: "1 h 05 min", 45 * time.Second: "45 s",
+		time.Hour + 5*time.Second: "1 h 00 min 05 s", 12*time.Hour + 5*time.Minute: "12 h 05 min",
+	} {
+		if got := Amount(d); got != want {
+			t.Errorf("Amount(%v) = %q, want %q", d, got, want)
+		}
+	}
 	for d, want := range map[time.Duration]string{-32 * time.Second: "−32 s", 64 * time.Second: "+1 min 04 s", 0: "+0 s"} {
 		if got := Change(d); got != want {
 			t.Errorf("Change(%v) = %q, want %q", d, got, want)

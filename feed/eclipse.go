@@ -176,7 +176,7 @@ func skylineText(s *siteInfo, e Event, body, title string, phase func(time.Time)
 		}
 	}
 	fmt.Fprintf(&b, "Seen from the site, over its skyline, for %s of the eclipse's %s.\n",
-		amount(seen.Round(time.Minute)), amount(e.End.Sub(e.Start).Round(time.Minute)))
+		hm(seen), hm(span(e.Start, e.End)))
 	return b.String(), title + " (partly behind the skyline)"
 }
 
@@ -207,7 +207,7 @@ func describeSolar(s *siteInfo, e Event) (string, string) {
 	cover := fmt.Sprintf("; the Moon covers %s of the Sun's diameter and %s of its disc", share(l.Magnitude), share(l.Obscuration))
 	if l.Type != astro.Partial {
 		cover = fmt.Sprintf("; the Moon's disc is %s the Sun's diameter (magnitude %.3f), the %s phase lasts %s",
-			share(l.Magnitude), l.Magnitude, typ, amount(l.C3.Time.Sub(l.C2.Time).Round(time.Second)))
+			share(l.Magnitude), l.Magnitude, typ, Length(span(l.C2.Time, l.C3.Time), time.Second))
 	}
 	line("greatest eclipse", l.Max, cover)
 	if !l.C3.IsZero() {
@@ -245,9 +245,9 @@ func describeSolar(s *siteInfo, e Event) (string, string) {
 	title := fmt.Sprintf("%s solar eclipse: %s of the Sun's diameter covered", capital(typ), share(best))
 	switch l.Type {
 	case astro.Total:
-		title = fmt.Sprintf("Total solar eclipse: %s of totality", amount(l.C3.Time.Sub(l.C2.Time).Round(time.Second)))
+		title = fmt.Sprintf("Total solar eclipse: %s of totality", Length(span(l.C2.Time, l.C3.Time), time.Second))
 	case astro.Annular:
-		title = fmt.Sprintf("Annular solar eclipse: %s of annularity", amount(l.C3.Time.Sub(l.C2.Time).Round(time.Second)))
+		title = fmt.Sprintf("Annular solar eclipse: %s of annularity", Length(span(l.C2.Time, l.C3.Time), time.Second))
 	}
 	if l.Type != astro.Partial && (!l.C2.Up || !l.C3.Up) {
 		title = fmt.Sprintf("%s solar eclipse at the horizon", capital(typ))
@@ -285,7 +285,7 @@ func describeLunar(s *siteInfo, ev Event) (string, string) {
 	case astro.Total:
 		depth = fmt.Sprintf("; umbral magnitude %.3f: the whole Moon is in the Earth's shadow, "+
 			"its far edge %s of its diameter inside; totality lasts %s", e.UmbralMagnitude,
-			share(e.UmbralMagnitude-1), amount(e.U3.Sub(e.U2).Round(time.Second)))
+			share(e.UmbralMagnitude-1), Length(span(e.U2, e.U3), time.Second))
 	case astro.Partial:
 		depth = fmt.Sprintf("; umbral magnitude %.3f: %s of the Moon's diameter is in the Earth's shadow",
 			e.UmbralMagnitude, share(e.UmbralMagnitude))
@@ -320,7 +320,7 @@ func describeLunar(s *siteInfo, ev Event) (string, string) {
 	var title string
 	switch e.Type {
 	case astro.Total:
-		title = fmt.Sprintf("Total lunar eclipse: the Moon in the Earth's shadow for %s", amount(e.U3.Sub(e.U2).Round(time.Minute)))
+		title = fmt.Sprintf("Total lunar eclipse: the Moon in the Earth's shadow for %s", hm(span(e.U2, e.U3)))
 	case astro.Partial:
 		title = fmt.Sprintf("Partial lunar eclipse: %s of the Moon in the Earth's shadow", share(e.UmbralMagnitude))
 	default:

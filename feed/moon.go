@@ -271,7 +271,7 @@ func describeMoon(s *siteInfo, e Event) (string, string) {
 		}
 		fmt.Fprintf(&b, " (%s, %s lit).", waxing(e), percent(e.Illuminated))
 	case "dark-window":
-		length := amount(ToSecond(e.End).Sub(ToSecond(e.Start)).Round(time.Minute))
+		length := hm(ToSecond(e.End).Sub(ToSecond(e.Start)))
 		title = fmt.Sprintf("Dark sky, %s, %s", length, NightOf(e.Date))
 		fmt.Fprintf(&b, "Dark sky on the %s from %s%s to %s%s (%s), %s: the Sun is more than 18° below the horizon and ",
 			NightOf(e.Date), at, DayMark(e.Start, e.Date, loc), localClock(e.End, loc), DayMark(e.End, e.Date, loc), length, s.where)
@@ -314,14 +314,16 @@ func describeMoonNote(s *siteInfo, n Note) (string, string) {
 	case "moon-transit":
 		title = "No Moon transit today: the Moon crosses the meridian about 50 minutes later each day"
 	case "dark-window":
-		if n.State == astro.AlwaysAbove {
-			title = "No dark sky on the " + NightOf(n.Date) + ": the Sun stays less than 18° below the horizon"
-		} else {
-			title = "No dark sky on the " + NightOf(n.Date) + ": the Moon is up and bright all through the astronomical night"
-			if len(s.Skyline) > 0 {
-				title = "No dark sky on the " + NightOf(n.Date) + ": the Moon is over the skyline and bright all through the astronomical night"
-			}
+		why := "the Moon is up and bright all through the astronomical night"
+		switch {
+		case n.State == astro.AlwaysAbove:
+			why = "the Sun stays less than 18° below the horizon"
+		case len(s.Skyline) > 0:
+			why = "the Moon is over the skyline and bright all through the astronomical night"
 		}
+		// the night names its dates once, in the title and in the description
+		return "No dark sky on the " + NightOf(n.Date) + ": " + why,
+			fmt.Sprintf("No dark sky at %s on the %s: %s.", s.where, NightOf(n.Date), why)
 	default:
 		title = n.Kind.String()
 	}

@@ -25,6 +25,9 @@ func ToSecond(t time.Time) time.Time { return t.Round(time.Millisecond).Round(ti
 // ToMinute is an instant as shown to the minute.
 func ToMinute(t time.Time) time.Time { return t.Round(time.Millisecond).Round(time.Minute) }
 
+// span is the time between two instants as shown, to the second.
+func span(from, to time.Time) time.Duration { return ToSecond(to).Sub(ToSecond(from)) }
+
 // DateOnly reports whether an event names a date rather than an instant:
 // the dates on which day length crosses a threshold, and the daily summary
 // of a date (an all-day entry in a feed). Such an event has no

@@ -92,21 +92,59 @@ func twoDigits(n int) string {
 	return string([]byte{byte('0' + n/10), byte('0' + n%10)})
 }
 
-// hm formats a duration as "9 h 25 min", or "48 min" under an hour
-// (rounded to the minute).
-func hm(d time.Duration) string { return string(appendHM(nil, d)) }
+// Durations are written one way in every title, description and table:
+// hours, minutes and seconds, the first unit as a plain number and each
+// later one in two digits, "14 h 02 min", "1 min 05 s", "48 min". A measured
+// duration (a day length, a window, a change) is rounded to the unit it is
+// shown to, half a unit up, and keeps its zero units ("12 h 00 min"); a
+// span between two instants is taken between the instants as shown, to the
+// second (see ToSecond). An amount from the configuration ("1 h before
+// sunset", "past 12 h 30 min") is written exactly, its zero units at the
+// end left out.
+
+// Length writes a measured duration rounded to unit (time.Minute or
+// time.Second): "9 h 05 min", "48 min", "0 min", "1 h 42 min 55 s".
+func Length(d, unit time.Duration) string { return string(appendDuration(nil, d, unit, false)) }
+
+// Amount writes a configured duration exactly, without zero units at the
+// end: "30 min", "1 h", "1 h 05 min", "45 s".
+func Amount(d time.Duration) string { return string(appendDuration(nil, d, time.Second, true)) }
+
+// appendDuration appends d, rounded to unit, as the rule above says; trim
+// leaves out zero units at the end.
+func appendDuration(b []byte, d, unit time.Duration, trim bool) []byte {
+	d = d.Round(unit)
+	parts := [3]int{int(d / time.Hour), int(d % time.Hour / time.Minute), int(d % time.Minute / time.Second)}
+	names := [3]string{" h", " min", " s"}
+	last := 1 // the unit shown: minutes
+	if unit < time.Minute {
+		last = 2
+	}
+	if trim {
+		for last > 0 && parts[last] == 0 {
+			last--
+		}
+	}
+	first := 0
+	for first < last && parts[first] == 0 {
+		first++
+	}
+	for i := first; i <= last; i++ {
+		if i > first {
+			b = append(append(b, ' '), byte('0'+parts[i]/10), byte('0'+parts[i]%10))
+		} else {
+			b = strconv.AppendInt(b, int64(parts[i]), 10)
+		}
+		b = append(b, names[i]...)
+	}
+	return b
+}
+
+// hm writes a measured duration to the minute: "9 h 05 min", "48 min".
+func hm(d time.Duration) string { return Length(d, time.Minute) }
 
 // appendHM appends hm(d) to b.
-func appendHM(b []byte, d time.Duration) []byte {
-	d = d.Round(time.Minute)
-	h := int(d / time.Hour)
-	m := int((d % time.Hour) / time.Minute)
-	if h == 0 {
-		return append(strconv.AppendInt(b, int64(m), 10), " min"...)
-	}
-	b = append(strconv.AppendInt(b, int64(h), 10), " h "...)
-	return append(append(b, byte('0'+m/10), byte('0'+m%10)), " min"...)
-}
+func appendHM(b []byte, d time.Duration) []byte { return appendDuration(b, d, time.Minute, false) }
 
 // Change formats a signed day-length change as "+1 min 30 s", "−2 min 05 s"
 // or "−32 s".
@@ -119,19 +157,7 @@ func appendChange(b []byte, d time.Duration) []byte {
 	} else {
 		b = append(b, '+')
 	}
-	d = d.Round(time.Second)
-	m := int(d / time.Minute)
-	s := int((d % time.Minute) / time.Second)
-	switch {
-	case m == 0:
-		return append(strconv.AppendInt(b, int64(s), 10), " s"...)
-	case m >= 60: // the first day after polar night: "+1 h 42 min 55 s", not "+102 min"
-		b = append(strconv.AppendInt(b, int64(m/60), 10), " h "...)
-		b = append(append(b, byte('0'+m%60/10), byte('0'+m%60%10)), " min "...)
-	default:
-		b = append(strconv.AppendInt(b, int64(m), 10), " min "...)
-	}
-	return append(append(b, byte('0'+s/10), byte('0'+s%10)), " s"...)
+	return appendDuration(b, d, time.Second, false)
 }
 
 // days formats a long duration as "92 d 18 h".
@@ -282,21 +308,8 @@ func offsetTitle(offset time.Duration, title string) string {
 	return amount(offset) + " " + word + " " + strings.ToLower(title[:1]) + title[1:]
 }
 
-// amount writes a duration in words: "30 min", "1 h", "1 h 15 min", "45 s".
-func amount(d time.Duration) string {
-	h, m, s := int(d/time.Hour), int(d%time.Hour/time.Minute), int(d%time.Minute/time.Second)
-	var parts []string
-	if h > 0 {
-		parts = append(parts, fmt.Sprintf("%d h", h))
-	}
-	if m > 0 {
-		parts = append(parts, fmt.Sprintf("%d min", m))
-	}
-	if s > 0 || len(parts) == 0 {
-		parts = append(parts, fmt.Sprintf("%d s", s))
-	}
-	return strings.Join(parts, " ")
-}
+// amount is Amount: "30 min", "1 h", "1 h 15 min", "45 s".
+func amount(d time.Duration) string { return Amount(d) }
 
 // describe gives the title and plain-language description of an event.
 func describe(s *siteInfo, e Event) (string, string) {
@@ -471,17 +484,7 @@ func FutureNote(t time.Time) string {
 }
 
 // roughly writes an uncertainty as "40 s" or "1 min 20 s" rounded to 10 s.
-func roughly(d time.Duration) string {
-	d = d.Round(10 * time.Second)
-	m, sec := int(d/time.Minute), int(d%time.Minute/time.Second)
-	switch {
-	case m == 0:
-		return fmt.Sprintf("%d s", sec)
-	case sec == 0:
-		return fmt.Sprintf("%d min", m)
-	}
-	return fmt.Sprintf("%d min %d s", m, sec)
-}
+func roughly(d time.Duration) string { return Amount(d.Round(10 * time.Second)) }
 
 // between writes the bounds of a band: "6° and 4° below the horizon" when
 // both are at or below it, else signed: "−4° and +6°".
@@ -649,7 +652,7 @@ func describeNote(s *siteInfo, n Note) (string, string) {
 // over a year or more, "Day length stays below 14 h from 1 January to 31
 // March 2027 (longest …)" over a shorter window.
 func NotReachedText(n Note) string {
-	target := shortHours(n.Kind.DayLength)
+	target := Amount(n.Kind.DayLength)
 	extreme := "longest"
 	verb, span := "never reaches", "never reaches"
 	if n.State == astro.AlwaysAbove {
@@ -668,21 +671,7 @@ func NotReachedText(n Note) string {
 	if n.DirectSun {
 		what = "Direct Sun"
 	}
-	return fmt.Sprintf("%s %s (%s %s, %s)", what, when, extreme, hmText(n.DayLength), n.ExtremeDate.Format("2 January"))
-}
-
-// shortHours writes a duration as "14 h" or "14 h 30 min".
-func shortHours(d time.Duration) string {
-	h, m := int(d/time.Hour), int(d%time.Hour/time.Minute)
-	if m == 0 {
-		return fmt.Sprintf("%d h", h)
-	}
-	return fmt.Sprintf("%d h %d min", h, m)
-}
-
-// hmText writes a day length as "12 h 42 min", rounded to the minute.
-func hmText(d time.Duration) string {
-	return shortHours(d.Round(time.Minute))
+	return fmt.Sprintf("%s %s (%s %s, %s)", what, when, extreme, hm(n.DayLength), n.ExtremeDate.Format("2 January"))
 }
 
 // noEventToday gives the title and the explanation of a date on which a

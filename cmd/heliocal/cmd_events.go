@@ -484,7 +484,7 @@ func stateText(s astro.State) string {
 func details(e *feed.Event, loc *time.Location) string {
 	var parts []string
 	if !e.End.IsZero() {
-		parts = append(parts, fmt.Sprintf("until %s%s (%s)", clock(e.End, loc), feed.DayMark(e.End, e.Date, loc), words(feed.ToSecond(e.End).Sub(feed.ToSecond(e.Start)).Round(time.Minute))))
+		parts = append(parts, fmt.Sprintf("until %s%s (%s)", clock(e.End, loc), feed.DayMark(e.End, e.Date, loc), feed.Length(feed.ToSecond(e.End).Sub(feed.ToSecond(e.Start)), time.Minute)))
 	}
 	if e.Part != "" {
 		parts = append(parts, e.Part)
@@ -498,9 +498,9 @@ func details(e *feed.Event, loc *time.Location) string {
 	}
 	switch e.Kind.Name {
 	case "sunrise", "sunset", "photoperiod", config.KindLighting:
-		parts = append(parts, length+words(e.DayLength.Round(time.Second)))
+		parts = append(parts, length+feed.Length(e.DayLength, time.Second))
 	case "daily-summary":
-		parts = append(parts, length+words(e.DayLength.Round(time.Second))+", change "+feed.Change(e.DayChange))
+		parts = append(parts, length+feed.Length(e.DayLength, time.Second)+", change "+feed.Change(e.DayChange))
 	}
 	if hasAzimuth(*e) {
 		parts = append(parts, fmt.Sprintf("azimuth %.1f° (%s)", e.Azimuth, astro.CompassPoint(e.Azimuth)))
@@ -516,20 +516,4 @@ func details(e *feed.Event, loc *time.Location) string {
 	}
 	parts = append(parts, eclipseDetails(e, loc)...)
 	return strings.Join(parts, ", ")
-}
-
-// words writes a duration as "1 h 16 min" or "8 h 31 min 23 s".
-func words(d time.Duration) string {
-	h, m, s := int(d/time.Hour), int(d%time.Hour/time.Minute), int(d%time.Minute/time.Second)
-	var parts []string
-	if h > 0 {
-		parts = append(parts, fmt.Sprintf("%d h", h))
-	}
-	if m > 0 || (h > 0 && s > 0) {
-		parts = append(parts, fmt.Sprintf("%d min", m))
-	}
-	if s > 0 || len(parts) == 0 {
-		parts = append(parts, fmt.Sprintf("%d s", s))
-	}
-	return strings.Join(parts, " ")
 }

@@ -7,6 +7,8 @@ import (
 	"strconv"
 	"strings"
 	"time"
+
+	"heliocal/feed"
 )
 
 // SiteChart is the year of one site as the index page draws it: sunrise and
@@ -264,8 +266,7 @@ func spans(days []ChartDay, ss []ClockSpan) string {
 
 // formatLength writes a day length as "7 h 41 min".
 func formatLength(d time.Duration) string {
-	m := int(math.Round(clipHours(d) * 60))
-	return fmt.Sprintf("%d h %02d min", m/60, m%60)
+	return feed.Length(min(max(d, 0), 24*time.Hour), time.Minute)
 }
 
 // chart turns a SiteChart into what the template draws; nil when empty.
@@ -528,11 +529,7 @@ func todayIndex(today time.Time, days []ChartDay) int {
 
 // formatHours writes a day length as "12 h" or "14 h 30 min".
 func formatHours(d time.Duration) string {
-	m := int(math.Round(clipHours(d) * 60))
-	if m%60 == 0 {
-		return strconv.Itoa(m/60) + " h"
-	}
-	return fmt.Sprintf("%d h %d min", m/60, m%60)
+	return feed.Amount(time.Duration(math.Round(clipHours(d)*60)) * time.Minute)
 }
 
 func plural(n int, one, many string) string {

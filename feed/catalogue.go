@@ -224,17 +224,71 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 	return w.out, nil
 }
 
-// sortEntries orders entries by Start, then UID, in place. The entries
-// come in a few runs already in that order (each kind's, date after date),
-// so it finds the runs and merges them as indices, then moves each entry
-// once: entries are large, and moving them dominated the sort.
-func sortEntries(es []Entry) []Entry {
-	cmp := func(i, j int32) int {
-		if c := es[i].Start.Compare(es[j].Start); c != 0 {
+// kindRank is each kind's place in the catalogue (config.KindNames).
+var kindRank = func() map[string]int {
+	m := make(map[string]int, len(config.KindNames))
+	for i, n := range config.KindNames {
+		m[n] = i
+	}
+	return m
+}()
+
+// AllDayOrder orders the all-day entries of one date, given by their kind
+// (as written, "photoperiod:12h") and title, by one fixed rule that feeds,
+// `heliocal events --feed`, the builder's preview and the /at table share:
+// the kinds in the catalogue's order (config.KindNames: the Sun, twilight,
+// the year, the Moon, eclipses; plans after them all), then the kind as
+// written, then the title.
+func AllDayOrder(aKind, aTitle, bKind, bTitle string) int {
+	rank := func(k string) int {
+		base, _, _ := strings.Cut(k, ":")
+		if r, ok := kindRank[base]; ok {
+			return r
+		}
+		return len(kindRank)
+	}
+	if aKind != bKind {
+		if c := rank(aKind) - rank(bKind); c != 0 {
 			return c
 		}
-		return strings.Compare(es[i].UID, es[j].UID)
+		return strings.Compare(aKind, bKind)
 	}
+	return strings.Compare(aTitle, bTitle)
+}
+
+// CompareEntries is the order of a calendar's entries: by their site-local
+// Date; a date's all-day entries first, among themselves by AllDayOrder;
+// then its timed ones by Start; then by UID. It is the order of the
+// builder's preview and the /at table, date by date, in which an entry
+// listed under the evening before (the part of a night after midnight)
+// stays with its date.
+func CompareEntries(a, b *Entry) int {
+	if c := a.Date.Compare(b.Date); c != 0 {
+		return c
+	}
+	switch {
+	case a.AllDay != b.AllDay:
+		if a.AllDay {
+			return -1
+		}
+		return 1
+	case a.AllDay:
+		if c := AllDayOrder(a.Kind, a.Title, b.Kind, b.Title); c != 0 {
+			return c
+		}
+	}
+	if c := a.Start.Compare(b.Start); c != 0 {
+		return c
+	}
+	return strings.Compare(a.UID, b.UID)
+}
+
+// sortEntries puts entries in the order of CompareEntries, in place. The
+// entries come in a few runs already in that order (each kind's, date after
+// date), so it finds the runs and merges them as indices, then moves each
+// entry once: entries are large, and moving them dominated the sort.
+func sortEntries(es []Entry) []Entry {
+	cmp := func(i, j int32) int { return CompareEntries(&es[i], &es[j]) }
 	n := int32(len(es))
 	bounds := []int32{0}
 	for i := int32(1); i < n; i++ {

@@ -60,3 +60,33 @@ func TestSortEntries(t *testing.T) {
 		}
 	}
 }
+
+// The all-day entries of a date come in one fixed order, whatever their
+// UIDs: the kinds in the catalogue's order (the Sun, twilight, the Moon),
+// plans last, each before the timed entries of that instant.
+func TestSortEntriesAllDay(t *testing.T) {
+	d := time.Date(2027, 4, 19, 0, 0, 0, 0, time.UTC)
+	day := func(kind, title, uid string) Entry {
+		return Entry{Kind: kind, Title: title, UID: uid, Start: d, End: d.AddDate(0, 0, 1), AllDay: true, Date: d}
+	}
+	// each kind a run of its own, as the builder gives them; the UIDs, hashes
+	// in a feed, put them in another order
+	es := []Entry{
+		day(KindPlan, "Open day", "1"),
+		day("dark-window", "No dark sky on the night of 19–20 April 2027", "2"),
+		{Kind: "moonrise", Title: "Moonrise", UID: "0", Start: d, Date: d},
+		day("daily-summary", "Daylight 24 h 00 min", "3"),
+		day("civil-dawn", "No civil dusk or dawn tonight", "4"),
+		day("photoperiod:14h", "b", "5"),
+		day("photoperiod:12h", "a", "6"),
+		day("sunrise", "Midnight sun: the Sun does not set today", "7"),
+	}
+	var kinds []string
+	for _, e := range sortEntries(es) {
+		kinds = append(kinds, e.Kind)
+	}
+	want := "sunrise civil-dawn photoperiod:12h photoperiod:14h daily-summary dark-window " + KindPlan + " moonrise"
+	if got := strings.Join(kinds, " "); got != want {
+		t.Errorf("order %s, want %s", got, want)
+	}
+}

@@ -464,13 +464,12 @@ func rangeNotes(k config.KindSpec) bool {
 }
 
 // streamEntries writes the entries of a chunk in the order of the whole
-// calendar (Start, then UID). pending are the earlier chunks' entries not
+// calendar (feed.CompareEntries). pending are the earlier chunks' entries not
 // yet written, in that order: those that come before the chunk's first
 // entry are written (no later chunk has an entry that early), the others
 // are merged with the chunk's and returned, to be written with the next.
-// An entry may sort after the next date's first entries (a span named by
-// its evening that starts after midnight; an all-day entry, at 00:00 UTC
-// of its date), so a chunk's last entries wait for the next chunk.
+// Entries go date by date, so a chunk's entries come after the earlier
+// chunks'; the merge keeps the whole calendar's order whatever a chunk holds.
 func streamEntries(st *ical.Stream, pending, entries []feed.Entry) ([]feed.Entry, error) {
 	if len(entries) == 0 {
 		return pending, nil
@@ -497,10 +496,5 @@ func streamEntries(st *ical.Stream, pending, entries []feed.Entry) ([]feed.Entry
 	return merged, nil
 }
 
-// entryBefore is the order of a calendar's entries: Start, then UID.
-func entryBefore(a, b *feed.Entry) bool {
-	if c := a.Start.Compare(b.Start); c != 0 {
-		return c < 0
-	}
-	return a.UID < b.UID
-}
+// entryBefore is the order of a calendar's entries (feed.CompareEntries).
+func entryBefore(a, b *feed.Entry) bool { return feed.CompareEntries(a, b) < 0 }

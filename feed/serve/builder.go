@@ -2,7 +2,6 @@ package serve
 
 import (
 	"bytes"
-	"cmp"
 	"context"
 	"embed"
 	"encoding/base64"
@@ -374,8 +373,8 @@ func days(cal *feed.Calendar, q AdhocQuery) []previewDay {
 		out[i].Entries = append(out[i].Entries, pe)
 	}
 	for _, d := range out {
-		// the all-day entries first and in one order every day (by kind,
-		// then title), the timed ones in the order of their times
+		// the all-day entries first and in the feeds' order
+		// (feed.AllDayOrder), the timed ones in the order of their times
 		slices.SortStableFunc(d.Entries, func(a, b previewEntry) int {
 			switch {
 			case (a.Time == "") != (b.Time == ""):
@@ -386,7 +385,7 @@ func days(cal *feed.Calendar, q AdhocQuery) []previewDay {
 			case a.Time != "":
 				return 0
 			}
-			return cmp.Or(strings.Compare(a.Kind, b.Kind), strings.Compare(a.Title, b.Title))
+			return feed.AllDayOrder(a.Kind, a.Title, b.Kind, b.Title)
 		})
 	}
 	return out

@@ -184,8 +184,9 @@ func TestPreviewTimesOnAnotherDate(t *testing.T) {
 	}
 }
 
-// The all-day entries of a row come first and in one order every day (by
-// kind), whatever order the calendar gave them in; timed ones keep theirs.
+// The all-day entries of a row come first and in the feeds' order (the
+// catalogue's order of kinds), whatever order the calendar gave them in;
+// timed ones keep theirs.
 func TestPreviewAllDayOrder(t *testing.T) {
 	d := time.Date(2027, 4, 19, 0, 0, 0, 0, time.UTC)
 	cal := &feed.Calendar{Entries: []feed.Entry{
@@ -200,7 +201,7 @@ func TestPreviewAllDayOrder(t *testing.T) {
 	for _, e := range got[0].Entries {
 		kinds = append(kinds, e.Kind)
 	}
-	if want := "civil-dawn daily-summary sunrise moonrise moonset"; strings.Join(kinds, " ") != want {
+	if want := "sunrise civil-dawn daily-summary moonrise moonset"; strings.Join(kinds, " ") != want {
 		t.Errorf("order %v, want %s", kinds, want)
 	}
 }

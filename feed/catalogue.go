@@ -10,6 +10,7 @@ import (
 	"strconv"
 	"strings"
 	"time"
+	"unsafe"
 
 	"heliocal/astro"
 	"heliocal/config"
@@ -381,14 +382,16 @@ type entryWriter struct {
 	feedID string
 	site   *siteInfo
 	seen   map[string]int
-	noted  map[string]bool // notes already written, by family and date
-	cats   map[string][]string
-	buf    []byte
-	out    []Entry
-	last   time.Time      // the last local date of the feed
-	alarm  *time.Duration // the alarm of the kinds entry or plan being written, nil for the feed's
-	lamp   *lightingText  // the text of the lighting kind last written
-	names  map[config.Kind]string
+	// keys holds the bytes of seen's keys, one after the other (see keep).
+	keys  []byte
+	noted map[string]bool // notes already written, by family and date
+	cats  map[string][]string
+	buf   []byte
+	out   []Entry
+	last  time.Time      // the last local date of the feed
+	alarm *time.Duration // the alarm of the kinds entry or plan being written, nil for the feed's
+	lamp  *lightingText  // the text of the lighting kind last written
+	names map[config.Kind]string
 
 	// text holds the descriptions and UIDs of the events written since
 	// the last flushText, and spans where each is: flushText makes them
@@ -424,6 +427,10 @@ type textSpan struct{ entry, from, to, uid int }
 // dawn or dusk with its caution takes about 330 bytes, a sunrise 230.
 const textPerEntry = 384
 
+// keysChunk is the size of each array of entryWriter.keys: a new one
+// is started when a key does not fit in the rest of the last one.
+const keysChunk = 16 << 10
+
 // uidLen is the length of a UID: 24 hex digits and "@heliocal".
 const uidLen = 24 + len("@heliocal")
 
@@ -446,12 +453,27 @@ func (w *entryWriter) appendUID(dst, key []byte) []byte {
 	if ok {
 		w.seen[string(key)] = n + 1
 	} else {
-		w.seen[string(key)] = 1
+		w.seen[w.keep(key)] = 1
 	}
 	key = strconv.AppendInt(append(key, '|'), int64(n), 10)
 	sum := sha256.Sum256(key)
 	w.buf = key
 	return append(hex.AppendEncode(dst, sum[:12]), "@heliocal"...)
+}
+
+// keep returns key as a string over a copy of it in w.keys, instead of
+// an allocation of its own per entry. Bytes once written to keys are never
+// changed: a key that does not fit in the rest of keys starts a new array.
+func (w *entryWriter) keep(key []byte) string {
+	if len(key) == 0 {
+		return ""
+	}
+	if cap(w.keys)-len(w.keys) < len(key) {
+		w.keys = make([]byte, 0, max(keysChunk, len(key)))
+	}
+	from := len(w.keys)
+	w.keys = append(w.keys, key...)
+	return unsafe.String(&w.keys[from], len(key))
 }
 
 // flushText gives the entries written since the last call their

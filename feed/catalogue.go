@@ -9,6 +9,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"sync"
 	"time"
 	"unsafe"
 
@@ -189,7 +190,7 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 	last := col.last
 	days := int(col.last.Sub(col.first).Hours()/24) + 1
 	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: make(map[string]int, days*len(specs)), noted: map[string]bool{}, last: civil(last)}
-	w.out = make([]Entry, 0, days*(len(specs)+1)+room)
+	w.out = newEntries(days*(len(specs)+1) + room)
 	w.text = make([]byte, 0, days*textPerEntry)
 	if err := col.prepare(altitudes(col.p.Observer, specs)...); err != nil {
 		return nil, err
@@ -223,6 +224,32 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 	}
 	w.flushText()
 	return w.out, nil
+}
+
+// releasedEntries keeps the entries' memory of released calendars
+// (Calendar.Release) for the next calendar's: an ad-hoc year feed's
+// entries take about 0.6 MB, and a server making one feed after another
+// spent much of its time collecting them.
+var releasedEntries sync.Pool // of *[]Entry, empty
+
+// Release tells that c and its entries are no longer used: their memory
+// serves a calendar built after. Neither c nor its entries may be used
+// after the call.
+func (c *Calendar) Release() {
+	es := c.Entries[:cap(c.Entries)]
+	clear(es) // nothing kept alive by the old entries' strings
+	es = es[:0]
+	c.Entries = nil
+	releasedEntries.Put(&es)
+}
+
+// newEntries returns an empty slice with room for n entries, from a
+// released calendar when one has enough.
+func newEntries(n int) []Entry {
+	if p, ok := releasedEntries.Get().(*[]Entry); ok && cap(*p) >= n {
+		return *p
+	}
+	return make([]Entry, 0, n)
 }
 
 // kindRank is each kind's place in the catalogue (config.KindNames).

@@ -332,7 +332,9 @@ func adhocFeedFrom(current func() adhocSettings) serve.AdhocFunc {
 		}
 		enc := encoders.Get().(*ical.Encoder)
 		defer encoders.Put(enc)
-		return enc.Append(nil, cal)
+		data, err := enc.Append(nil, cal)
+		cal.Release() // the next feed's entries take its memory
+		return data, err
 	}
 }
 

@@ -237,7 +237,7 @@ func escapeText(b []byte, s string) []byte {
 		// Skip 8 octets at a time while none needs escaping.
 		for i+8 <= len(s) {
 			x := load64(s, i)
-			if hasByte(x, '\\') || hasByte(x, ';') || hasByte(x, ',') || hasByte(x, '\n') {
+			if needsEscape(x) {
 				break
 			}
 			i += 8
@@ -361,3 +361,19 @@ func hasLess(x uint64, n byte) bool { return (x-ones*uint64(n))&^x&highs != 0 }
 
 // hasByte reports whether an octet of x is c.
 func hasByte(x uint64, c byte) bool { return hasLess(x^(ones*uint64(c)), 1) }
+
+// needsEscape reports whether an octet of x is one escapeText escapes
+// (backslash, semicolon, comma, newline): the four hasByte tests in one,
+// with a single branch.
+func needsEscape(x uint64) bool {
+	a, b, c, d := x^(ones*'\\'), x^(ones*';'), x^(ones*','), x^(ones*'\n')
+	return ((a-ones)&^a|(b-ones)&^b|(c-ones)&^c|(d-ones)&^d)&highs != 0
+}
+
+// needsCleaning reports whether an octet of x is not printable ASCII or is
+// HTAB or LF (cleanText's octet-wise path): x&highs, hasLess(x, ' ') and
+// hasByte(x, 0x7f) in one, with a single branch.
+func needsCleaning(x uint64) bool {
+	d := x ^ (ones * 0x7f)
+	return (x|(x-ones*' ')&^x|(d-ones)&^d)&highs != 0
+}

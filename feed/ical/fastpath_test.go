@@ -120,6 +120,17 @@ func TestWordTests(t *testing.T) {
 				t.Fatalf("hasByte(% x, %#x) = %v", w, c, !has)
 			}
 		}
+		esc, clean := false, false
+		for _, o := range w {
+			esc = esc || o == '\\' || o == ';' || o == ',' || o == '\n'
+			clean = clean || o < ' ' || o >= 0x7f
+		}
+		if needsEscape(x) != esc {
+			t.Fatalf("needsEscape(% x) = %v", w, !esc)
+		}
+		if needsCleaning(x) != clean {
+			t.Fatalf("needsCleaning(% x) = %v", w, !clean)
+		}
 	}
 }
 

@@ -30,7 +30,7 @@ func cleanText(s string) string {
 		// character (HTAB and LF, too, take the octet-wise path).
 		for i+8 <= len(s) {
 			x := load64(s, i)
-			if x&highs != 0 || hasLess(x, ' ') || hasByte(x, 0x7f) {
+			if needsCleaning(x) {
 				break
 			}
 			i += 8

@@ -19,8 +19,18 @@ import (
 // ToMillisecond is an instant as JSON shows it.
 func ToMillisecond(t time.Time) time.Time { return t.Round(time.Millisecond) }
 
-// ToSecond is an instant as shown to the second.
-func ToSecond(t time.Time) time.Time { return t.Round(time.Millisecond).Round(time.Second) }
+// ToSecond is an instant as shown to the second: t.Round(time.Millisecond)
+// .Round(time.Second) in one step. Both round half up, so the second goes
+// up exactly when the millisecond, rounded, is 500 or more: from
+// 499.5 ms on.
+func ToSecond(t time.Time) time.Time {
+	up := t.Nanosecond() >= 499_500_000
+	t = t.Truncate(time.Second)
+	if up {
+		t = t.Add(time.Second)
+	}
+	return t
+}
 
 // ToMinute is an instant as shown to the minute.
 func ToMinute(t time.Time) time.Time { return t.Round(time.Millisecond).Round(time.Minute) }

@@ -16,12 +16,22 @@ const (
 	partPolarNight = "polar-night"
 )
 
-// daylight is the natural light of one local date: its total length, the
-// first instant of light (the date's start when the Sun is already up) and
-// the last one (the date's end when it is still up).
+// daylight is the natural light of one local date, counted as the day
+// length of the daily summary and photoperiod is (dayLengths): a daylight
+// period shorter than a day belongs whole to the date of its sunrise, even
+// when its sunset falls after midnight; a longer one counts on each date for
+// its own part. first is the date's first instant of light (its start when
+// the Sun is up from a longer period), last the end of its last one (its end
+// when the Sun stays up). dawnFrom is when the dark before first begins
+// (first itself when there is none), duskTo when the dark after last ends
+// (last itself when there is none); zero when not known. Lamps go only in
+// that dark. touched reports light on the date that belongs to the date
+// before's day.
 type daylight struct {
-	length      time.Duration
-	first, last time.Time
+	length           time.Duration
+	first, last      time.Time
+	dawnFrom, duskTo time.Time
+	touched          bool
 }
 
 // daylights returns, for each local date first..last, the light above alt.
@@ -30,39 +40,68 @@ func (c *collector) daylights(alt float64) ([]daylight, error) {
 	if err != nil {
 		return nil, err
 	}
-	xs, up := th.xs, th.upFirst
+	// the periods above alt; an open end far away
+	never := time.Unix(1<<40, 0).UTC()
+	type span struct{ r, s time.Time }
+	var spans []span
+	if th.upFirst {
+		spans = append(spans, span{s: never})
+	}
+	for _, x := range th.xs {
+		if x.Direction == astro.Rising {
+			spans = append(spans, span{r: x.Time, s: never})
+		} else if len(spans) > 0 && spans[len(spans)-1].s.Equal(never) {
+			spans[len(spans)-1].s = x.Time
+		}
+	}
 	starts := c.dayStarts()
 	out := make([]daylight, 0, len(starts)-3)
+	j := 0
 	for i := 0; i+3 < len(starts); i++ {
 		start, end := starts[i+1], starts[i+2]
-		for len(xs) > 0 && xs[0].Time.Before(start) {
-			up = xs[0].Direction == astro.Rising
-			xs = xs[1:]
+		for j < len(spans) && spans[j].s.Before(start) {
+			j++
 		}
 		var dl daylight
-		cur := start
-		if up {
-			dl.first = start
-		}
-		for len(xs) > 0 && xs[0].Time.Before(end) {
-			x := xs[0]
-			xs = xs[1:]
-			if x.Direction == astro.Rising {
-				if dl.first.IsZero() {
-					dl.first = x.Time
+		fi, li := -1, -1
+		for k := j; k < len(spans) && spans[k].r.Before(end); k++ {
+			sp := spans[k]
+			a, b := sp.r, sp.s
+			if b.Sub(a) < 24*time.Hour { // whole on the date of its sunrise
+				if a.Before(start) {
+					dl.touched = dl.touched || b.After(start)
+					continue
 				}
-				cur, up = x.Time, true
-				continue
+			} else {
+				if a.Before(start) {
+					a = start
+				}
+				if b.After(end) {
+					b = end
+				}
+				if !b.After(a) {
+					continue
+				}
 			}
-			if up {
-				dl.length += x.Time.Sub(cur)
-				dl.last = x.Time
+			dl.length += b.Sub(a)
+			if fi < 0 {
+				fi, dl.first = k, a
 			}
-			up = false
+			li, dl.last = k, b
 		}
-		if up {
-			dl.length += end.Sub(cur)
-			dl.last = end
+		if fi >= 0 {
+			switch {
+			case dl.first.After(spans[fi].r):
+				dl.dawnFrom = dl.first // up since before the date
+			case fi > 0:
+				dl.dawnFrom = spans[fi-1].s
+			}
+			switch {
+			case dl.last.Before(spans[li].s):
+				dl.duskTo = dl.last // up after the date
+			case li+1 < len(spans):
+				dl.duskTo = spans[li+1].r
+			}
 		}
 		out = append(out, dl)
 	}
@@ -88,7 +127,9 @@ func (c *collector) lighting(k config.Kind) error {
 	var noons map[time.Time]time.Time
 	needs := make([]bool, len(days))
 	for i, dl := range days {
-		needs[i] = dl.length < k.DayLength
+		// a date whose only light is the date before's day, past midnight,
+		// has no day of its own and no polar night either: no lamps
+		needs[i] = dl.length < k.DayLength && !(dl.length == 0 && dl.touched)
 		if needs[i] && dl.length == 0 && noons == nil {
 			from, to := c.span(0)
 			ts, err := c.sky.eph.SunTransits(c.p.Observer, from, to)
@@ -132,8 +173,23 @@ func (c *collector) lighting(k config.Kind) error {
 			e.Lamp = e.End.Sub(e.Start)
 			return e
 		}
-		morning := func(n time.Duration) Event { return period(partMorning, dl.first.Add(-n), dl.first) }
-		evening := func(n time.Duration) Event { return period(partEvening, dl.last, dl.last.Add(n)) }
+		// never while the Sun is up: a morning period starts no earlier
+		// than the dark before sunrise, an evening one ends no later than
+		// the dark after sunset (short nights at high latitude)
+		morning := func(n time.Duration) Event {
+			from := dl.first.Add(-n)
+			if !dl.dawnFrom.IsZero() && from.Before(dl.dawnFrom) {
+				from = dl.dawnFrom
+			}
+			return period(partMorning, from, dl.first)
+		}
+		evening := func(n time.Duration) Event {
+			to := dl.last.Add(n)
+			if !dl.duskTo.IsZero() && to.After(dl.duskTo) {
+				to = dl.duskTo
+			}
+			return period(partEvening, dl.last, to)
+		}
 		var ps [2]Event
 		switch {
 		case dl.length == 0:
@@ -175,7 +231,10 @@ func (c *collector) lighting(k config.Kind) error {
 		if got == 0 {
 			// lamps are needed but none are scheduled: say so, and why
 			why := "under the " + amount(minLen) + " minimum"
-			if dropped == 0 {
+			switch {
+			case dropped == 0 && lim.text == "":
+				why = "the Sun is up again before they could come on"
+			case dropped == 0:
 				why = "the lamp limits leave no time (" + lim.text + ")"
 			}
 			c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.AlwaysBelow, Family: k.String(),

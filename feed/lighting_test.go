@@ -5,6 +5,7 @@ import (
 	"encoding/csv"
 	"os"
 	"regexp"
+	"slices"
 	"strings"
 	"testing"
 	"time"
@@ -435,5 +436,72 @@ func TestLightingPolarNightLimits(t *testing.T) {
 	if e.Start.Format("15:04") != "06:00" || e.End.Format("15:04") != "21:00" || !e.Facts.Short ||
 		!strings.Contains(e.Title, "(15 h 00 min; 16 h not reached)") {
 		t.Errorf("%s–%s %q short %v", e.Start, e.End, e.Title, e.Facts.Short)
+	}
+}
+
+// Lamps use the day of the daily summary and photoperiod (common practice:
+// day length runs from sunrise to sunset, the sunset that ends the day even
+// past midnight), and never burn while the Sun is up. At 78.2° N in April the
+// sunset crosses midnight and the nights are short: a 23 h 50 min target
+// puts evening lamps after the sunset past midnight, cut where the Sun rises
+// again, and each lamp entry gives the summary's day length. The site is
+// invented, at Svalbard's latitude.
+func TestLightingDayAcrossMidnight(t *testing.T) {
+	s := site(t, "isfjell-hut", 78.2, 15.6, "Arctic/Longyearbyen")
+	sk := sky(t, "2027-04-08", "2027-04-22")
+	from, to := date("2027-04-10"), date("2027-04-18")
+	for _, lamps := range []string{config.LampsEvening, config.LampsMorning, config.LampsBoth} {
+		spec := lightingSpec(t, "lighting:23h50m", func(ks *config.KindSpec) { ks.Lamps = lamps })
+		var specs []config.KindSpec
+		for _, k := range mustKinds(t, "sunrise", "sunset", "daily-summary") {
+			specs = append(specs, config.KindSpec{Kind: k})
+		}
+		specs = append(specs, spec)
+		events, _, err := sk.EventsFor(context.Background(), PlaceOf(s), specs, from, to)
+		if err != nil {
+			t.Fatal(err)
+		}
+		summary := map[time.Time]time.Duration{}
+		var sun []Event // sunrises and sunsets in order
+		for _, e := range events {
+			switch e.Kind.Name {
+			case "daily-summary":
+				summary[e.Date] = e.DayLength
+			case "sunrise", "sunset":
+				sun = append(sun, e)
+			}
+		}
+		slices.SortFunc(sun, func(a, b Event) int { return a.Start.Compare(b.Start) })
+		up := func(t time.Time) bool { // the Sun up at t, by the last rise or set before it
+			u := false
+			for _, e := range sun {
+				if !e.Start.Before(t) {
+					break
+				}
+				u = e.Kind.Name == "sunrise"
+			}
+			return u
+		}
+		n := 0
+		for _, e := range events {
+			if e.Kind.Name != config.KindLighting {
+				continue
+			}
+			n++
+			if want, ok := summary[e.Date]; !ok || e.DayLength != want {
+				t.Errorf("lamps %s, %s: day length %v, daily summary %v", lamps, e.Date.Format(time.DateOnly), e.DayLength, want)
+			}
+			for m := e.Start.Add(time.Second); m.Before(e.End); m = m.Add(time.Minute) {
+				if up(m) {
+					t.Errorf("lamps %s, %s: on %s–%s while the Sun is up at %s", lamps, e.Date.Format(time.DateOnly),
+						e.Start.In(s.TimeZone.Location).Format("2 Jan 15:04:05"), e.End.In(s.TimeZone.Location).Format("2 Jan 15:04:05"),
+						m.In(s.TimeZone.Location).Format("2 Jan 15:04"))
+					break
+				}
+			}
+		}
+		if n == 0 {
+			t.Errorf("lamps %s: no lamp period on %s..%s", lamps, from.Format(time.DateOnly), to.Format(time.DateOnly))
+		}
 	}
 }

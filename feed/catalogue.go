@@ -211,6 +211,9 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 			return nil, fmt.Errorf("%s: %w", spec.Kind, err)
 		}
 		w.out = slices.Grow(w.out, len(col.events)-n0+len(col.notes)-m0)
+		if spec.Kind.Name == config.KindLighting {
+			w.text = slices.Grow(w.text, (len(col.events)-n0)*lampText)
+		}
 		for _, e := range col.events[n0:] {
 			w.event(spec, e)
 		}
@@ -447,8 +450,9 @@ func (w *entryWriter) kindName(k config.Kind) string {
 }
 
 // textSpan locates the description (text[from:to]) and the UID
-// (text[uid:uid+uidLen]) of the entry out[entry].
-type textSpan struct{ entry, from, to, uid int }
+// (text[uid:uid+uidLen]) of the entry out[entry], and its title
+// (text[title:uid]) when title is not 0.
+type textSpan struct{ entry, from, to, uid, title int }
 
 // textPerEntry is room for the description and UID of most entries: a
 // dawn or dusk with its caution takes about 330 bytes, a sunrise 230.
@@ -513,6 +517,9 @@ func (w *entryWriter) flushText() {
 	for _, sp := range w.spans {
 		e := &w.out[sp.entry]
 		e.Description, e.UID = s[sp.from:sp.to], s[sp.uid:sp.uid+uidLen]
+		if sp.title > 0 {
+			e.Title = s[sp.title:sp.uid]
+		}
 	}
 	w.text, w.spans = w.text[:0], w.spans[:0]
 }
@@ -537,9 +544,14 @@ func (w *entryWriter) event(spec config.KindSpec, e Event) {
 	offset := time.Duration(spec.Offset)
 	loc := w.site.TimeZone.Location
 	var title string
+	var lamp []byte // a lamp period's title, written to text when kept as it is
 	from := len(w.text)
 	if e.Kind.Name == config.KindLighting {
-		w.text, title = w.lightingText(spec).appendDescription(w.text, w.site, e)
+		var buf [96]byte
+		w.text, lamp = w.lightingText(spec).appendDescription(w.text, buf[:0], w.site, e)
+		if offset != 0 || spec.Label != "" {
+			title, lamp = string(lamp), nil
+		}
 	} else {
 		w.text, title = appendDescription(w.text, w.site, e)
 	}
@@ -582,6 +594,10 @@ func (w *entryWriter) event(spec config.KindSpec, e Event) {
 	key = append(appendDate(append(key, '|'), e.Date), '|')
 	key = append(append(append(key, e.Part...), '|'), dirString(e.Direction)...)
 	sp := textSpan{entry: len(w.out), from: from, to: len(w.text), uid: len(w.text)}
+	if lamp != nil {
+		w.text = append(w.text, lamp...)
+		sp.title, sp.uid = sp.to, len(w.text)
+	}
 	w.text = w.appendUID(w.text, key)
 	w.spans = append(w.spans, sp)
 	w.out = append(w.out, en)

@@ -324,10 +324,62 @@ func (c *collector) clip(e *Event, lim lampLimits) {
 	}
 }
 
-// appendHM appends a local clock time to the minute, "16:42".
-func appendHourMinute(b []byte, t time.Time, loc *time.Location) []byte {
-	h, m, _ := ToMinute(t).In(loc).Clock()
-	return append(b, byte('0'+h/10), byte('0'+h%10), ':', byte('0'+m/10), byte('0'+m%10))
+// lampText is room for the title, description and UID of a lamp period:
+// most take about 420 bytes.
+const lampText = 512
+
+// shownClock is an instant as the lamp entries show it: the local clock
+// to the second with the zone's abbreviation ("16:42:10 CET"), and to the
+// minute ("16:42"), each found with one look-up of the zone.
+type shownClock struct {
+	h, m, s int    // to the second
+	hm, mm  int    // to the minute
+	zone    string // at the second
+}
+
+func shownAt(t time.Time, loc *time.Location) shownClock {
+	ts, tm := ToSecond(t), ToMinute(t)
+	zone, off := ts.In(loc).Zone()
+	sec := daySeconds(ts.Unix() + int64(off))
+	offM := off
+	if tm != ts {
+		_, offM = tm.In(loc).Zone() // a clock change may lie between the two
+	}
+	mins := daySeconds(tm.Unix()+int64(offM)) / 60
+	return shownClock{h: sec / 3600, m: sec / 60 % 60, s: sec % 60, hm: mins / 60, mm: mins % 60, zone: zone}
+}
+
+// daySeconds is the time of day, in seconds, of a count of seconds since
+// 1970-01-01 00:00 on some clock.
+func daySeconds(u int64) int {
+	s := u % secondsPerDay
+	if s < 0 {
+		s += secondsPerDay
+	}
+	return int(s)
+}
+
+// localDay is the number of days since 1970-01-01 of t's local date.
+func localDay(t time.Time, loc *time.Location) int64 {
+	_, off := t.In(loc).Zone()
+	u := t.Unix() + int64(off)
+	d := u / secondsPerDay
+	if u%secondsPerDay < 0 {
+		d--
+	}
+	return d
+}
+
+// appendMinute appends the clock to the minute, "16:42".
+func (c shownClock) appendMinute(b []byte) []byte {
+	return append(b, byte('0'+c.hm/10), byte('0'+c.hm%10), ':', byte('0'+c.mm/10), byte('0'+c.mm%10))
+}
+
+// appendSecond appends the clock to the second and the zone, as
+// appendClock writes it.
+func (c shownClock) appendSecond(b []byte) []byte {
+	b = append(b, byte('0'+c.h/10), byte('0'+c.h%10), ':', byte('0'+c.m/10), byte('0'+c.m%10), ':', byte('0'+c.s/10), byte('0'+c.s%10), ' ')
+	return append(b, c.zone...)
 }
 
 // lightingText is the text of a lighting kind's entries that is the same
@@ -374,13 +426,13 @@ func (w *entryWriter) lightingText(spec config.KindSpec) *lightingText {
 }
 
 // appendDescription appends the description of a lamp period to dst and
-// returns its title.
-func (lt *lightingText) appendDescription(dst []byte, s *siteInfo, e Event) ([]byte, string) {
+// its title to title.
+func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e Event) ([]byte, []byte) {
 	loc := s.TimeZone.Location
-	var buf [96]byte // on the stack: the title is copied once, into its string
-	t := appendHourMinute(append(buf[:0], "Lamps on "...), e.Start, loc)
-	t = appendHourMinute(append(t, "–"...), e.End, loc)
-	if localDate(e.End.Add(-time.Nanosecond), loc) != e.Date {
+	on, off := shownAt(e.Start, loc), shownAt(e.End, loc)
+	t := on.appendMinute(append(title, "Lamps on "...))
+	t = off.appendMinute(append(t, "–"...))
+	if localDay(e.End.Add(-time.Nanosecond), loc) != e.Date.Unix()/secondsPerDay {
 		t = append(t, " (+1 day)"...)
 	}
 	t = appendHM(append(t, " ("...), e.Lamp) // as the natural day below
@@ -400,8 +452,8 @@ func (lt *lightingText) appendDescription(dst []byte, s *siteInfo, e Event) ([]b
 		}
 	}
 	b := append(append(append(dst, "Supplemental lighting ("...), part...), "): lamps on at "...)
-	b = appendClock(b, e.Start, loc)
-	b = appendClock(append(b, ", off at "...), e.End, loc)
+	b = on.appendSecond(b)
+	b = off.appendSecond(append(b, ", off at "...))
 	b = append(appendHM(append(b, " ("...), e.Lamp), ").\n"...)
 	b = append(appendHM(append(b, lt.natural...), e.DayLength), lt.site...)
 	other := partMorning // the other period of lamps: both
@@ -432,7 +484,7 @@ func (lt *lightingText) appendDescription(dst []byte, s *siteInfo, e Event) ([]b
 	case e.Short:
 		b = append(append(append(b, "The target of "...), lt.target...), " is not reached today.\n"...)
 	}
-	return append(b, lt.closing...), string(t)
+	return append(b, lt.closing...), t
 }
 
 // describeLightingNote gives the note at the start of a stretch of dates

@@ -149,7 +149,7 @@ func (c *collector) lighting(k config.Kind) error {
 		lamps = config.LampsEvening
 	}
 	for i, dl := range days {
-		d := c.first.AddDate(0, 0, i)
+		d := c.first.Add(time.Duration(i) * 24 * time.Hour) // a civil date: UTC has no clock changes
 		if !needs[i] {
 			if i == 0 || needs[i-1] {
 				n := Note{Kind: k, Date: d, State: astro.AlwaysAbove, Family: k.String()}
@@ -303,25 +303,43 @@ func limitsOf(spec config.KindSpec) lampLimits {
 func (c *collector) clip(e *Event, lim lampLimits) {
 	loc := c.p.Location
 	if lim.hasOn && e.Part != partEvening {
-		d := localDate(e.End, loc)
-		t := clockOn(d, lim.on, loc)
+		day := localDay(e.End, loc)
+		t := c.clockOnDay(day, lim.on)
 		if !t.Before(e.End) {
-			t = clockOn(d.AddDate(0, 0, -1), lim.on, loc)
+			t = c.clockOnDay(day-1, lim.on)
 		}
 		if e.Start.Before(t) {
 			e.Start, e.Clipped = t, true
 		}
 	}
 	if lim.hasOff && e.Part != partMorning {
-		d := localDate(e.Start, loc)
-		t := clockOn(d, lim.off, loc)
+		day := localDay(e.Start, loc)
+		t := c.clockOnDay(day, lim.off)
 		if !t.After(e.Start) {
-			t = clockOn(d.AddDate(0, 0, 1), lim.off, loc)
+			t = c.clockOnDay(day+1, lim.off)
 		}
 		if e.End.After(t) {
 			e.End, e.Clipped = t, true
 		}
 	}
+}
+
+// clockOnDay is clockOn for the local date day (days since 1970-01-01):
+// the date's first instant (dayStarts) plus clock when the zone keeps one
+// offset from a day before that instant to two days after it, for then
+// the date begins at 00:00 and the clock time is that instant, once;
+// clockOn otherwise.
+func (c *collector) clockOnDay(day int64, clock time.Duration) time.Time {
+	starts := c.dayStarts()
+	if j := int(day-c.first.Unix()/secondsPerDay) + 1; j >= 0 && j < len(starts) {
+		s := starts[j]
+		t := s.Add(clock)
+		from, to := t.In(c.p.Location).ZoneBounds()
+		if (from.IsZero() || !from.After(s.Add(-24*time.Hour))) && (to.IsZero() || to.After(s.Add(48*time.Hour))) {
+			return t
+		}
+	}
+	return clockOn(time.Unix(day*secondsPerDay, 0).UTC(), clock, c.p.Location)
 }
 
 // lampText is room for the title, description and UID of a lamp period:

@@ -321,44 +321,50 @@ func CompareEntries(a, b *Entry) int {
 func sortEntries(es []Entry) []Entry {
 	cmp := func(i, j int32) int { return CompareEntries(&es[i], &es[j]) }
 	n := int32(len(es))
-	bounds := []int32{0}
+	ends := []int32{} // the end of each run but the last
 	for i := int32(1); i < n; i++ {
 		if cmp(i-1, i) > 0 {
-			bounds = append(bounds, i)
+			ends = append(ends, i)
 		}
 	}
-	if len(bounds) == 1 {
+	if len(ends) == 0 {
 		return es // in order already
 	}
-	bounds = append(bounds, n)
+	ends = append(ends, n)
 	idx, tmp := make([]int32, n), make([]int32, n)
 	for i := range idx {
 		idx[i] = int32(i)
 	}
-	// merge neighbouring runs until one is left
-	for len(bounds) > 2 {
-		next := make([]int32, 1, len(bounds)/2+2)
-		for r := 0; r+1 < len(bounds); r += 2 {
-			lo, mid := bounds[r], bounds[r+1]
-			if r+2 == len(bounds) { // an odd run out: copied as it is
-				copy(tmp[lo:], idx[lo:])
-				next = append(next, n)
-				break
-			}
-			hi := bounds[r+2]
-			i, j, k := lo, mid, lo
-			for ; i < mid && j < hi; k++ {
-				if cmp(idx[j], idx[i]) < 0 {
-					tmp[k], j = idx[j], j+1
-				} else {
-					tmp[k], i = idx[i], i+1
-				}
-			}
-			k += int32(copy(tmp[k:], idx[i:mid]))
-			copy(tmp[k:], idx[j:hi])
-			next = append(next, hi)
+	startOf := func(r int) int32 {
+		if r == 0 {
+			return 0
 		}
-		idx, tmp, bounds = tmp, idx, next
+		return ends[r-1]
+	}
+	// merge the two neighbouring runs with the fewest entries until one
+	// run is left: a short run (a plan's dates, a note) is not merged again
+	// and again with the long ones. Each merge keeps the order of equal
+	// entries, and so does the whole.
+	for len(ends) > 1 {
+		best := 0
+		for r := 1; r+1 < len(ends); r++ {
+			if ends[r+1]-startOf(r) < ends[best+1]-startOf(best) {
+				best = r
+			}
+		}
+		lo, mid, hi := startOf(best), ends[best], ends[best+1]
+		i, j, k := lo, mid, lo
+		for ; i < mid && j < hi; k++ {
+			if cmp(idx[j], idx[i]) < 0 {
+				tmp[k], j = idx[j], j+1
+			} else {
+				tmp[k], i = idx[i], i+1
+			}
+		}
+		k += int32(copy(tmp[k:], idx[i:mid]))
+		copy(tmp[k:], idx[j:hi])
+		copy(idx[lo:hi], tmp[lo:hi])
+		ends = append(ends[:best], ends[best+1:]...)
 	}
 	// es[i] takes the entry at idx[i]: follow each cycle of the permutation
 	for i := range idx {

@@ -175,18 +175,30 @@ func (c *collector) lighting(k config.Kind) error {
 		}
 		// never while the Sun is up: a morning period starts no earlier
 		// than the dark before sunrise, an evening one ends no later than
-		// the dark after sunset (short nights at high latitude)
+		// the dark after sunset (short nights at high latitude). With lamps
+		// both a night serves two dates, the evening of one and the morning
+		// of the next: each gets its half of the night, so the two never
+		// burn at once and a date's lamps do not depend on the window.
+		dawnFrom, duskTo := dl.dawnFrom, dl.duskTo
+		if lamps == config.LampsBoth {
+			if !dawnFrom.IsZero() {
+				dawnFrom = dawnFrom.Add(dl.first.Sub(dawnFrom) / 2)
+			}
+			if !duskTo.IsZero() {
+				duskTo = dl.last.Add(duskTo.Sub(dl.last) / 2)
+			}
+		}
 		morning := func(n time.Duration) Event {
 			from := dl.first.Add(-n)
-			if !dl.dawnFrom.IsZero() && from.Before(dl.dawnFrom) {
-				from = dl.dawnFrom
+			if !dawnFrom.IsZero() && from.Before(dawnFrom) {
+				from = dawnFrom
 			}
 			return period(partMorning, from, dl.first)
 		}
 		evening := func(n time.Duration) Event {
 			to := dl.last.Add(n)
-			if !dl.duskTo.IsZero() && to.After(dl.duskTo) {
-				to = dl.duskTo
+			if !duskTo.IsZero() && to.After(duskTo) {
+				to = duskTo
 			}
 			return period(partEvening, dl.last, to)
 		}
@@ -263,11 +275,18 @@ func (c *collector) bothPeriods(short, minLen time.Duration, morning, evening fu
 	} else if minLen > 0 && e.Lamp > 0 && e.Lamp < minLen {
 		e, m, why = Event{}, morning(short), "minimum"
 	}
+	// a period cut short without a limit is cut by the Sun's light
+	whyFor := func(cut Event) string {
+		if why == "minimum" || cut.Clipped {
+			return why
+		}
+		return "dark"
+	}
 	if x := m.Lamp - half; x > 0 {
-		m.MadeUp, m.MadeUpWhy = x, why
+		m.MadeUp, m.MadeUpWhy = x, whyFor(e)
 	}
 	if x := e.Lamp - (short - half); x > 0 {
-		e.MadeUp, e.MadeUpWhy = x, why
+		e.MadeUp, e.MadeUpWhy = x, whyFor(m)
 	}
 	return m, e
 }
@@ -487,6 +506,9 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e Even
 	case e.MadeUp > 0 && e.MadeUpWhy == "minimum":
 		b = append(appendHM(append(b, "All of the shortfall in one period: the "...), e.MadeUp), " "...)
 		b = append(append(append(append(b, other...), " period would be under the minimum of "...), lt.minimum...), ".\n"...)
+	case e.MadeUp > 0 && e.MadeUpWhy == "dark":
+		b = appendHM(b, e.MadeUp)
+		b = append(append(append(b, " longer than half the shortfall: the short night leaves no more time for the "...), other...), " lamps.\n"...)
 	case e.MadeUp > 0:
 		b = appendHM(b, e.MadeUp)
 		b = append(append(append(b, " longer than half the shortfall, to make up for the "...), other...), " lamps, which are clipped ("...)

@@ -483,11 +483,19 @@ func TestLightingDayAcrossMidnight(t *testing.T) {
 			return u
 		}
 		n := 0
+		var lastOff time.Time
 		for _, e := range events {
 			if e.Kind.Name != config.KindLighting {
 				continue
 			}
 			n++
+			// one night shared by two dates: never two lamp periods at once
+			if e.Start.Before(lastOff) {
+				t.Errorf("lamps %s, %s: on at %s, before the lamps of the period before go off at %s", lamps, e.Date.Format(time.DateOnly),
+					e.Start.In(s.TimeZone.Location).Format("2 Jan 15:04:05"), lastOff.In(s.TimeZone.Location).Format("2 Jan 15:04:05"))
+			}
+			lastOff = e.End
+
 			if want, ok := summary[e.Date]; !ok || e.DayLength != want {
 				t.Errorf("lamps %s, %s: day length %v, daily summary %v", lamps, e.Date.Format(time.DateOnly), e.DayLength, want)
 			}
@@ -502,6 +510,28 @@ func TestLightingDayAcrossMidnight(t *testing.T) {
 		}
 		if n == 0 {
 			t.Errorf("lamps %s: no lamp period on %s..%s", lamps, from.Format(time.DateOnly), to.Format(time.DateOnly))
+		}
+		// a period made up for one the dark cuts says so, not "clipped ()";
+		// a date's lamps are the same whichever date the calendar starts on
+		es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, from, to)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, e := range es {
+			if strings.Contains(e.Description, "()") {
+				t.Errorf("lamps %s, %s: %q", lamps, e.Date.Format(time.DateOnly), e.Description)
+			}
+			if e.Facts.Note {
+				continue
+			}
+			one, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, e.Date, e.Date)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if !slices.ContainsFunc(one, func(o Entry) bool { return o.Start.Equal(e.Start) && o.End.Equal(e.End) }) {
+				t.Errorf("lamps %s, %s: %s–%s in the calendar from %s, not in the calendar of that date alone", lamps, e.Date.Format(time.DateOnly),
+					e.Start.In(s.TimeZone.Location).Format("15:04:05"), e.End.In(s.TimeZone.Location).Format("15:04:05"), from.Format(time.DateOnly))
+			}
 		}
 	}
 }

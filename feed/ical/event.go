@@ -2,6 +2,7 @@ package ical
 
 import (
 	"io"
+	"math/bits"
 	"time"
 	"unicode/utf8"
 
@@ -233,26 +234,30 @@ func (w *writer) endRawLine(b []byte, start int) []byte {
 // newline becomes `\n`; nothing else changes.
 func escapeText(b []byte, s string) []byte {
 	from := 0
-	for i := 0; i < len(s); i++ {
-		// Skip 8 octets at a time while none needs escaping.
-		for i+8 <= len(s) {
-			x := load64(s, i)
-			if needsEscape(x) {
-				break
-			}
-			i += 8
-		}
-		if i >= len(s) {
-			break
-		}
-		esc := textEscapes[s[i]]
-		if esc == 0 {
-			continue
-		}
-		b = append(append(b, s[from:i]...), '\\', esc)
+	for i := nextEscape(s, 0); i < len(s); i = nextEscape(s, i+1) {
+		b = append(append(b, s[from:i]...), '\\', textEscapes[s[i]])
 		from = i + 1
 	}
 	return append(b, s[from:]...)
+}
+
+// nextEscape returns the index of the first octet of s at or after i that
+// escapeText escapes, or len(s) if there is none. It tests 8 octets at a
+// time and goes straight to the first one found (the lowest flag of
+// escapeMask), so a text with a comma or newline every few words costs
+// one test per 8 octets, not one per octet after each of them.
+func nextEscape(s string, i int) int {
+	for ; i+8 <= len(s); i += 8 {
+		if m := escapeMask(load64(s, i)); m != 0 {
+			return i + bits.TrailingZeros64(m)/8
+		}
+	}
+	for ; i < len(s); i++ {
+		if textEscapes[s[i]] != 0 {
+			return i
+		}
+	}
+	return len(s)
 }
 
 // textEscapes maps each byte escapeText escapes to the byte after the
@@ -362,18 +367,20 @@ func hasLess(x uint64, n byte) bool { return (x-ones*uint64(n))&^x&highs != 0 }
 // hasByte reports whether an octet of x is c.
 func hasByte(x uint64, c byte) bool { return hasLess(x^(ones*uint64(c)), 1) }
 
-// needsEscape reports whether an octet of x is one escapeText escapes
-// (backslash, semicolon, comma, newline): the four hasByte tests in one,
-// with a single branch.
-func needsEscape(x uint64) bool {
+// escapeMask has a high bit set in the octets of x that escapeText
+// escapes (backslash, semicolon, comma, newline: the four hasByte tests in
+// one), and possibly in octets above the first of them (a borrow);
+// its lowest set bit is always in the first such octet, and no bit is
+// set when there is none.
+func escapeMask(x uint64) uint64 {
 	a, b, c, d := x^(ones*'\\'), x^(ones*';'), x^(ones*','), x^(ones*'\n')
-	return ((a-ones)&^a|(b-ones)&^b|(c-ones)&^c|(d-ones)&^d)&highs != 0
+	return ((a-ones)&^a | (b-ones)&^b | (c-ones)&^c | (d-ones)&^d) & highs
 }
 
-// needsCleaning reports whether an octet of x is not printable ASCII or is
-// HTAB or LF (cleanText's octet-wise path): x&highs, hasLess(x, ' ') and
-// hasByte(x, 0x7f) in one, with a single branch.
-func needsCleaning(x uint64) bool {
+// cleanMask is escapeMask for cleanText's octet-wise path: its lowest set
+// bit is in the first octet of x that is not printable ASCII or is HTAB or
+// LF (x&highs, hasLess(x, ' ') and hasByte(x, 0x7f) in one).
+func cleanMask(x uint64) uint64 {
 	d := x ^ (ones * 0x7f)
-	return (x|(x-ones*' ')&^x|(d-ones)&^d)&highs != 0
+	return (x | (x-ones*' ')&^x | (d-ones)&^d) & highs
 }

@@ -1,6 +1,7 @@
 package ical
 
 import (
+	"math/bits"
 	"math/rand"
 	"strings"
 	"testing"
@@ -121,15 +122,26 @@ func TestWordTests(t *testing.T) {
 			}
 		}
 		esc, clean := false, false
-		for _, o := range w {
-			esc = esc || o == '\\' || o == ';' || o == ',' || o == '\n'
-			clean = clean || o < ' ' || o >= 0x7f
+		firstEsc, firstClean := 8, 8
+		for i, o := range w {
+			if o == '\\' || o == ';' || o == ',' || o == '\n' {
+				esc, firstEsc = true, min(firstEsc, i)
+			}
+			if o < ' ' || o >= 0x7f {
+				clean, firstClean = true, min(firstClean, i)
+			}
 		}
-		if needsEscape(x) != esc {
-			t.Fatalf("needsEscape(% x) = %v", w, !esc)
+		if got := bits.TrailingZeros64(escapeMask(x)) / 8; got != firstEsc {
+			t.Fatalf("escapeMask(% x) points at octet %d, want %d", w, got, firstEsc)
 		}
-		if needsCleaning(x) != clean {
-			t.Fatalf("needsCleaning(% x) = %v", w, !clean)
+		if got := bits.TrailingZeros64(cleanMask(x)) / 8; got != firstClean {
+			t.Fatalf("cleanMask(% x) points at octet %d, want %d", w, got, firstClean)
+		}
+		if (escapeMask(x) != 0) != esc {
+			t.Fatalf("escapeMask(% x) != 0 is %v", w, !esc)
+		}
+		if (cleanMask(x) != 0) != clean {
+			t.Fatalf("cleanMask(% x) != 0 is %v", w, !clean)
 		}
 	}
 }

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"math/bits"
 	"net/url"
 	"strconv"
 	"strings"
@@ -29,8 +30,8 @@ func cleanText(s string) string {
 		// 8 octets at a time while they are ASCII with no control
 		// character (HTAB and LF, too, take the octet-wise path).
 		for i+8 <= len(s) {
-			x := load64(s, i)
-			if needsCleaning(x) {
+			if m := cleanMask(load64(s, i)); m != 0 {
+				i += bits.TrailingZeros64(m) / 8 // the first such octet
 				break
 			}
 			i += 8

@@ -6,6 +6,7 @@ import (
 	"time"
 
 	"heliocal/config"
+	"heliocal/internal/cputime"
 )
 
 // BenchmarkEntriesSiteYear: one site, 400 days of the daily kinds of the
@@ -104,12 +105,12 @@ func BenchmarkPlansLighting(b *testing.B) {
 		b.Run(v.name, func(b *testing.B) {
 			var n int
 			b.ReportAllocs()
-			cpu0 := cpuTime()
+			cpu0 := cputime.Used()
 			for b.Loop() {
 				n = build(v.f)
 			}
 			b.ReportMetric(float64(n), "entries")
-			b.ReportMetric(float64(cpuTime()-cpu0)/1e6/float64(b.N), "cpu-ms/op")
+			b.ReportMetric(float64(cputime.Used()-cpu0)/1e6/float64(b.N), "cpu-ms/op")
 		})
 	}
 }
@@ -126,9 +127,9 @@ func BenchmarkPlansLightingAlternating(b *testing.B) {
 	for b.Loop() {
 		for j := range variants {
 			v := (i + j) % len(variants)
-			t0 := cpuTime()
+			t0 := cputime.Used()
 			build(variants[v].f)
-			cpu[v] += cpuTime() - t0
+			cpu[v] += cputime.Used() - t0
 		}
 		i++
 	}

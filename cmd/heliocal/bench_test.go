@@ -13,6 +13,7 @@ import (
 
 	"heliocal/feed/publish"
 	"heliocal/feed/serve"
+	"heliocal/internal/cputime"
 )
 
 // eventsArgs is the events command measured against PyEphem by
@@ -90,7 +91,7 @@ func BenchmarkAdhocFeed(b *testing.B) {
 	}
 	b.ReportAllocs()
 	var size int
-	cpu0 := cpuTime()
+	cpu0 := cputime.Used()
 	for i := 0; b.Loop(); i++ {
 		q.Latitude = 40 + float64(i%1000)*0.01 // a new place each time
 		data, err := build(context.Background(), q)
@@ -99,7 +100,7 @@ func BenchmarkAdhocFeed(b *testing.B) {
 		}
 		size = len(data)
 	}
-	b.ReportMetric(float64(cpuTime()-cpu0)/1e6/float64(b.N), "cpu-ms/op")
+	b.ReportMetric(float64(cputime.Used()-cpu0)/1e6/float64(b.N), "cpu-ms/op")
 	b.ReportMetric(float64(size), "bytes/feed")
 }
 
@@ -136,11 +137,11 @@ func BenchmarkAdhocRequest(b *testing.B) {
 	get(-1) // the dates' shared ephemeris, built once for every place
 	b.ReportAllocs()
 	var size int64
-	cpu0 := cpuTime()
+	cpu0 := cputime.Used()
 	for i := 0; b.Loop(); i++ {
 		size = get(i).n
 	}
-	b.ReportMetric(float64(cpuTime()-cpu0)/1e6/float64(b.N), "cpu-ms/op")
+	b.ReportMetric(float64(cputime.Used()-cpu0)/1e6/float64(b.N), "cpu-ms/op")
 	b.ReportMetric(float64(size), "gzip-bytes/op")
 }
 

@@ -1,15 +1,14 @@
 //go:build unix
 
-package main
+package cputime
 
 import (
 	"syscall"
 	"time"
 )
 
-// cpuTime is the CPU time the process has used (user and system): a
-// benchmark figure that a busy machine disturbs less than wall time.
-func cpuTime() time.Duration {
+// Used is the CPU time the process has used (user and system).
+func Used() time.Duration {
 	var ru syscall.Rusage
 	if err := syscall.Getrusage(syscall.RUSAGE_SELF, &ru); err != nil {
 		return 0

@@ -191,7 +191,8 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 	days := int(col.last.Sub(col.first).Hours()/24) + 1
 	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: make(map[string]int, days*len(specs)), noted: map[string]bool{}, last: civil(last)}
 	w.out = newEntries(days*(len(specs)+1) + room)
-	w.text = make([]byte, 0, days*textPerEntry)
+	w.text = newText(days * textPerEntry)
+	defer func() { releaseText(w.text) }()
 	if err := col.prepare(altitudes(col.p.Observer, specs)...); err != nil {
 		return nil, err
 	}
@@ -253,6 +254,27 @@ func newEntries(n int) []Entry {
 		return *p
 	}
 	return make([]Entry, 0, n)
+}
+
+// textBuffers keeps the entry writers' text buffers (entryWriter.text) for
+// the next feed's: flushText copies the text into the entries' strings, so
+// the buffer is scratch once the entries are written (about 140 kB for a
+// year of four kinds).
+var textBuffers sync.Pool // of *[]byte, empty
+
+// newText returns an empty buffer with room for n bytes, a used one when
+// one has enough.
+func newText(n int) []byte {
+	if p, ok := textBuffers.Get().(*[]byte); ok && cap(*p) >= n {
+		return *p
+	}
+	return make([]byte, 0, n)
+}
+
+// releaseText gives a text buffer back for newText.
+func releaseText(b []byte) {
+	b = b[:0]
+	textBuffers.Put(&b)
 }
 
 // kindRank is each kind's place in the catalogue (config.KindNames).

@@ -18,13 +18,13 @@ func TestAdhocNameAlarmHorizon(t *testing.T) {
 	build := adhocFeed(newLayout(""), 24*time.Hour)
 	base := serve.AdhocQuery{Latitude: -33.45, Longitude: -70.66, Location: mustZone(t, "America/Santiago"),
 		Kinds: []string{"sunrise"}, Start: time.Date(2026, 6, 1, 0, 0, 0, 0, time.UTC), Days: 3}
-	flat, err := build(context.Background(), base)
+	flat, err := build(context.Background(), base, nil)
 	if err != nil {
 		t.Fatal(err)
 	}
 	q := base
 	q.Name, q.Alarm, q.Horizon = "Quebrada Vineyard", 15*time.Minute, 5
-	hills, err := build(context.Background(), q)
+	hills, err := build(context.Background(), q, nil)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -65,13 +65,13 @@ func TestAdhocOffset(t *testing.T) {
 	build := adhocFeed(newLayout(""), 24*time.Hour)
 	base := serve.AdhocQuery{Latitude: -33.45, Longitude: -70.66, Location: mustZone(t, "America/Santiago"),
 		Kinds: []string{"sunset"}, Start: time.Date(2026, 6, 1, 0, 0, 0, 0, time.UTC), Days: 3}
-	plain, err := build(context.Background(), base)
+	plain, err := build(context.Background(), base, nil)
 	if err != nil {
 		t.Fatal(err)
 	}
 	q := base
 	q.Offsets = map[string]time.Duration{"sunset": -30 * time.Minute}
-	early, err := build(context.Background(), q)
+	early, err := build(context.Background(), q, nil)
 	if err != nil {
 		t.Fatal(err)
 	}

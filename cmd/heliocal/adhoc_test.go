@@ -36,7 +36,7 @@ func TestAdhocFeedStopsWithItsContext(t *testing.T) {
 	build := adhocFeed(newLayout(""), 24*time.Hour)
 	// How many checks a whole build makes.
 	whole := &countingContext{Context: context.Background(), limit: 1 << 30}
-	if _, err := build(whole, q); err != nil {
+	if _, err := build(whole, q, nil); err != nil {
 		t.Fatal(err)
 	}
 	checks := whole.calls.Load()
@@ -46,7 +46,7 @@ func TestAdhocFeedStopsWithItsContext(t *testing.T) {
 	}
 	for _, limit := range []int32{1, 2, checks / 2, checks - 1} {
 		ctx := &countingContext{Context: context.Background(), limit: limit}
-		_, err := build(ctx, q)
+		_, err := build(ctx, q, nil)
 		if !errors.Is(err, context.Canceled) {
 			t.Errorf("cancelled at check %d of %d: error %v, want context.Canceled", limit, checks, err)
 		}
@@ -77,7 +77,7 @@ func TestAdhocFeedAtTheEndsOfTheRange(t *testing.T) {
 	} {
 		q := serve.AdhocQuery{Latitude: -33.45, Longitude: -70.67, Location: mustZone(t, "America/Santiago"),
 			Kinds: []string{"sunrise", "moonrise", "full-moon", "december-solstice"}, Start: start, Days: 31}
-		b, err := build(context.Background(), q)
+		b, err := build(context.Background(), q, nil)
 		if err != nil {
 			t.Fatalf("%s: %v", start.Format(time.DateOnly), err)
 		}

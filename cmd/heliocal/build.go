@@ -325,14 +325,14 @@ func adhocFeedFrom(current func() adhocSettings) serve.AdhocFunc {
 	calendar := adhocCalendarFrom(current)
 	// encoders keep their working memory from one feed to the next
 	encoders := sync.Pool{New: func() any { return ical.NewEncoder(ical.Options{Version: versionString()}) }}
-	return func(ctx context.Context, q serve.AdhocQuery) ([]byte, error) {
+	return func(ctx context.Context, q serve.AdhocQuery, dst []byte) ([]byte, error) {
 		cal, err := calendar(ctx, q)
 		if err != nil {
 			return nil, err
 		}
 		enc := encoders.Get().(*ical.Encoder)
 		defer encoders.Put(enc)
-		data, err := enc.Append(nil, cal)
+		data, err := enc.Append(dst, cal)
 		cal.Release() // the next feed's entries take its memory
 		return data, err
 	}

@@ -85,7 +85,12 @@ func (s *Server) buildAdhoc(ctx context.Context, q AdhocQuery) (a *asset, err er
 		}
 	}()
 	start := time.Now()
-	data, err := s.opts.Adhoc(ctx, q)
+	buf := adhocBuffers.Get().(*[]byte)
+	data, err := s.opts.Adhoc(ctx, q, (*buf)[:0])
+	defer func() {
+		*buf = data[:0] // the asset keeps none of it: newAdhocAsset copies
+		adhocBuffers.Put(buf)
+	}()
 	s.metrics.adhocSeconds.Observe(time.Since(start).Seconds())
 	if err != nil {
 		return nil, err
@@ -100,6 +105,11 @@ func (s *Server) buildAdhoc(ctx context.Context, q AdhocQuery) (a *asset, err er
 	s.cache.put(q.String(), a)
 	return a, nil
 }
+
+// adhocBuffers hold the encoded ad-hoc feeds while they are compressed and
+// hashed: a one-year feed is about 880 kB, and a server making one feed
+// after another spent much of its time collecting them.
+var adhocBuffers = sync.Pool{New: func() any { return new([]byte) }}
 
 // adhocCache is a small LRU of built ad-hoc feeds, bounded by entries and
 // bytes, emptied at every refresh.

@@ -131,12 +131,12 @@ func TestAdhocNormalisedAndCached(t *testing.T) {
 	var calls atomic.Int32
 	var got AdhocQuery
 	var mu sync.Mutex
-	s := adhocServer(t, func(ctx context.Context, q AdhocQuery) ([]byte, error) {
+	s := adhocServer(t, func(ctx context.Context, q AdhocQuery, _ []byte) ([]byte, error) {
 		calls.Add(1)
 		mu.Lock()
 		got = q
 		mu.Unlock()
-		return adhocICS(ctx, q)
+		return adhocICS(ctx, q, nil)
 	})
 	h := s.Handler()
 	first := get(t, h, "GET", "/at.ics?lat=47.50001&lon=13.05&tz=Europe/Vienna&kinds=sunset,sunrise&elev=424.4")
@@ -223,7 +223,10 @@ func TestAdhocDisabledAndDefaults(t *testing.T) {
 	}
 	var got AdhocQuery
 	s, _ = newTestServer(t, Options{
-		Adhoc:             func(ctx context.Context, q AdhocQuery) ([]byte, error) { got = q; return adhocICS(ctx, q) },
+		Adhoc: func(ctx context.Context, q AdhocQuery, _ []byte) ([]byte, error) {
+			got = q
+			return adhocICS(ctx, q, nil)
+		},
 		AdhocDefaultKinds: []string{"Sunset", "sunrise"},
 		AdhocDefaultDays:  30,
 		AdhocMaxDays:      60,
@@ -241,7 +244,7 @@ func TestAdhocDisabledAndDefaults(t *testing.T) {
 
 func TestAdhocBuilderErrors(t *testing.T) {
 	var mode atomic.Value
-	s := adhocServer(t, func(ctx context.Context, q AdhocQuery) ([]byte, error) {
+	s := adhocServer(t, func(ctx context.Context, q AdhocQuery, _ []byte) ([]byte, error) {
 		switch mode.Load() {
 		case "query":
 			return nil, &QueryError{Param: ParamKinds, Value: "moonrise", Msg: "not available above 80° latitude"}
@@ -250,7 +253,7 @@ func TestAdhocBuilderErrors(t *testing.T) {
 		case "panic":
 			panic("index out of range")
 		}
-		return adhocICS(ctx, q)
+		return adhocICS(ctx, q, nil)
 	})
 	h := s.Handler()
 	for i, tc := range []struct {
@@ -276,11 +279,11 @@ func TestAdhocSharedBuild(t *testing.T) {
 	release := make(chan struct{})
 	entered := make(chan struct{}, 10)
 	var calls atomic.Int32
-	s := adhocServer(t, func(ctx context.Context, q AdhocQuery) ([]byte, error) {
+	s := adhocServer(t, func(ctx context.Context, q AdhocQuery, _ []byte) ([]byte, error) {
 		calls.Add(1)
 		entered <- struct{}{}
 		<-release
-		return adhocICS(ctx, q)
+		return adhocICS(ctx, q, nil)
 	})
 	var wg sync.WaitGroup
 	const n = 5
@@ -362,7 +365,7 @@ func newDateLoop() *dateLoop {
 	return &dateLoop{tick: make(chan struct{}), started: make(chan struct{}, 8), stopped: make(chan error, 8)}
 }
 
-func (d *dateLoop) build(ctx context.Context, q AdhocQuery) ([]byte, error) {
+func (d *dateLoop) build(ctx context.Context, q AdhocQuery, _ []byte) ([]byte, error) {
 	d.started <- struct{}{}
 	for range q.Days {
 		select {
@@ -374,7 +377,7 @@ func (d *dateLoop) build(ctx context.Context, q AdhocQuery) ([]byte, error) {
 		}
 	}
 	d.stopped <- nil
-	return adhocICS(ctx, q)
+	return adhocICS(ctx, q, nil)
 }
 
 // serveAsync runs one request whose context the caller can cancel.
@@ -477,7 +480,7 @@ func TestAdhocSharedBuildStopsWithTheLastRequest(t *testing.T) {
 // again costs no computation. A feed within the limit is served.
 func TestAdhocSizeCap(t *testing.T) {
 	var calls atomic.Int32
-	s, _ := newTestServer(t, Options{AdhocMaxBytes: 20_000, Adhoc: func(ctx context.Context, q AdhocQuery) ([]byte, error) {
+	s, _ := newTestServer(t, Options{AdhocMaxBytes: 20_000, Adhoc: func(ctx context.Context, q AdhocQuery, _ []byte) ([]byte, error) {
 		calls.Add(1)
 		return icsFor(q.ID(), q.Days, "cap"), nil // one event a day, about 200 bytes each
 	}})

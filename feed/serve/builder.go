@@ -239,7 +239,7 @@ func (s *Server) subscribeDays(ctx context.Context, q AdhocQuery) (int, error) {
 		return 0, errAdhocBusy
 	}
 	defer func() { <-s.adhocSem }()
-	data, err := s.opts.Adhoc(ctx, q)
+	data, err := s.opts.Adhoc(ctx, q, nil)
 	if err != nil {
 		return 0, err
 	}

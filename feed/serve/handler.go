@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"io"
 	"log/slog"
 	"net/http"
 	"net/url"
@@ -216,11 +217,11 @@ func (s *Server) serveAsset(w http.ResponseWriter, r *http.Request, a *asset) {
 	if a.disposition != nil {
 		h["Content-Disposition"] = a.disposition
 	}
-	body := a.data
+	var body io.ReadSeeker
 	if a.gz != nil {
 		h["Vary"] = hdrVary
 		if acceptsGzip(r.Header.Get("Accept-Encoding")) {
-			body = a.gz
+			body = bytes.NewReader(a.gz)
 			h["Etag"] = a.gzETag
 			h["Content-Encoding"] = hdrGzip
 		} else {
@@ -229,7 +230,14 @@ func (s *Server) serveAsset(w http.ResponseWriter, r *http.Request, a *asset) {
 	} else {
 		h["Etag"] = a.etag
 	}
-	http.ServeContent(w, r, "", a.modTime, bytes.NewReader(body))
+	if body == nil {
+		if a.data == nil && a.gz != nil {
+			body = &gunzipReader{gz: a.gz} // an ad-hoc feed keeps only its gzip form
+		} else {
+			body = bytes.NewReader(a.data)
+		}
+	}
+	http.ServeContent(w, r, "", a.modTime, body)
 }
 
 // health is the /healthz body.

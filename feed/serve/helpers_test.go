@@ -94,7 +94,7 @@ func (b *builder) build(ctx context.Context) (*publish.Bundle, error) {
 
 // adhocICS is the ad-hoc builder of the tests: a calendar whose name is the
 // normalised query, so a test can see what the server asked for.
-func adhocICS(ctx context.Context, q AdhocQuery) ([]byte, error) {
+func adhocICS(ctx context.Context, q AdhocQuery, _ []byte) ([]byte, error) {
 	return icsFor(q.ID(), q.Days/30, q.String()), nil
 }
 

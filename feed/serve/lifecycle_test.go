@@ -54,10 +54,10 @@ func TestGracefulShutdown(t *testing.T) {
 		Build:      func(context.Context) (*publish.Bundle, error) { return testBundle("a"), nil },
 		Logger:     quiet(),
 		Registerer: reg, Gatherer: reg,
-		Adhoc: func(ctx context.Context, q AdhocQuery) ([]byte, error) {
+		Adhoc: func(ctx context.Context, q AdhocQuery, _ []byte) ([]byte, error) {
 			close(entered)
 			<-release
-			return adhocICS(ctx, q)
+			return adhocICS(ctx, q, nil)
 		},
 	})
 	if err != nil {
@@ -100,7 +100,7 @@ func TestGracefulShutdown(t *testing.T) {
 		t.Fatalf("in-flight request: %d %v", res.code, res.err)
 	}
 	q, _ := parseAdhoc("lat=52.1&lon=5.2&tz=Europe/Amsterdam&kinds=sunrise&start=2026-06-01&days=60", time.Now(), s.limits)
-	want, _ := adhocICS(context.Background(), q)
+	want, _ := adhocICS(context.Background(), q, nil)
 	if res.body != string(want) {
 		t.Error("in-flight request got a partial body")
 	}

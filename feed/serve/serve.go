@@ -49,10 +49,12 @@ import (
 // has returned before.
 type BuildFunc func(ctx context.Context) (*publish.Bundle, error)
 
-// AdhocFunc renders one ad-hoc feed (the .ics bytes) for a validated query.
-// An error that is (or wraps) a *QueryError is reported to the client as a
-// 400 with its message; any other error is a 500.
-type AdhocFunc func(ctx context.Context, q AdhocQuery) ([]byte, error)
+// AdhocFunc renders one ad-hoc feed for a validated query: it appends the
+// .ics bytes to dst and returns the extended slice. dst and the result
+// belong to the server (it reuses them for the next feed): the function
+// keeps neither. An error that is (or wraps) a *QueryError is reported to
+// the client as a 400 with its message; any other error is a 500.
+type AdhocFunc func(ctx context.Context, q AdhocQuery, dst []byte) ([]byte, error)
 
 // Defaults of Options.
 const (

@@ -568,3 +568,43 @@ func TestAdhocGzip(t *testing.T) {
 		t.Errorf("another feed has the same ETag %q", other.Header.Get("ETag"))
 	}
 }
+
+// A cached ad-hoc feed keeps only its gzip form: a client that does not
+// take gzip gets the built bytes decompressed, with the identity ETag, a
+// 304 when it has them (RFC 9110 §13.1.2) and ranges of them (§14).
+func TestAdhocIdentityFromGzip(t *testing.T) {
+	s := adhocServer(t, adhocICS)
+	h := s.Handler()
+	const query = "lat=47.5&lon=13.05&tz=Europe/Vienna&kinds=sunrise&days=365"
+	q, err := parseAdhoc(query, today, s.limits)
+	if err != nil {
+		t.Fatal(err)
+	}
+	built, _ := adhocICS(t.Context(), q, nil)
+	first := get(t, h, "GET", "/at.ics?"+query) // built for this request
+	if got := body(t, first); got != string(built) {
+		t.Fatalf("first identity body: %d bytes, want the %d built", len(got), len(built))
+	}
+	a := s.cache.get(q.String())
+	if a == nil || a.gz == nil || a.data != nil {
+		t.Fatalf("cached asset: want the gzip form only, got %+v", a)
+	}
+	if s.cache.bytes != len(a.gz) {
+		t.Errorf("cache counts %d bytes, want the %d of the gzip form", s.cache.bytes, len(a.gz))
+	}
+	again := get(t, h, "GET", "/at.ics?"+query) // from the cache
+	if got := body(t, again); got != string(built) {
+		t.Errorf("cached identity body: %d bytes, want the %d built", len(got), len(built))
+	}
+	etag := again.Header.Get("ETag")
+	if etag == "" || strings.HasSuffix(etag, `-gz"`) || again.Header.Get("Content-Encoding") != "" {
+		t.Errorf("identity response: ETag %q, Content-Encoding %q", etag, again.Header.Get("Content-Encoding"))
+	}
+	if r := get(t, h, "GET", "/at.ics?"+query, "If-None-Match", etag); r.StatusCode != http.StatusNotModified {
+		t.Errorf("If-None-Match with the identity ETag: status %d, want 304", r.StatusCode)
+	}
+	r := get(t, h, "GET", "/at.ics?"+query, "Range", "bytes=0-14")
+	if got := body(t, r); r.StatusCode != http.StatusPartialContent || got != string(built[:15]) {
+		t.Errorf("range 0-14: status %d, body %q, want 206 %q", r.StatusCode, got, built[:15])
+	}
+}

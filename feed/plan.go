@@ -63,7 +63,11 @@ type planDate struct {
 func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed, first, last time.Time) ([]Entry, error) {
 	col := &collector{ctx: ctx, sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
 	if len(f.Plans) == 0 {
+		// the collector's events are scratch here: entries copies each
+		// into an entry and nothing else sees the collector
+		col.events = reusedEvents()
 		es, err := sky.entries(col, s, f.ID, f.Kinds, 0)
+		releaseEvents(col.events)
 		if err != nil {
 			return nil, err
 		}

@@ -120,3 +120,33 @@ func TestSummaryNotesOnce(t *testing.T) {
 		t.Errorf("summary of 21 June at 78° N does not say midnight sun:\n%s", es[0].Description)
 	}
 }
+
+// A daily summary whose day ends with a sunset after midnight shows that
+// sunset (its length counts it) instead of saying there is no sunset today,
+// and the next date's summary says its early sunset ends the day before. At
+// 78.2° N (invented site at Svalbard's latitude) the day of 17 April 2027
+// begins at 02:14 and ends at 00:03 on the 18th (the instants of
+// TestDayLengthAcrossMidnight's case; day length from sunrise to sunset is
+// common practice).
+func TestSummaryShowsSunsetAfterMidnight(t *testing.T) {
+	s := site(t, "isfjell-hut", 78.2, 15.6, "Arctic/Longyearbyen")
+	sk := sky(t, "2027-04-16", "2027-04-18")
+	es, err := sk.Entries(context.Background(), s, "hut", []config.KindSpec{{Kind: mustKinds(t, "daily-summary")[0]}}, date("2027-04-16"), date("2027-04-18"))
+	if err != nil || len(es) != 3 {
+		t.Fatalf("entries %v, %v; want three summaries", es, err)
+	}
+	byDate := map[string]string{}
+	for _, e := range es {
+		byDate[e.Date.Format(time.DateOnly)] = e.Description
+	}
+	d17, d18 := byDate["2027-04-17"], byDate["2027-04-18"]
+	if strings.Contains(d17, "No sunset") || !strings.Contains(d17, "Sunset 00:03 CEST (after midnight, Sun 18 April)") {
+		t.Errorf("summary of 17 April does not show its sunset after midnight:\n%s", d17)
+	}
+	if !strings.Contains(d18, "Sunset 00:03 CEST (ending the day before)") {
+		t.Errorf("summary of 18 April does not say its early sunset ends the day before:\n%s", d18)
+	}
+	if d16 := byDate["2027-04-16"]; strings.Contains(d16, "after midnight") || strings.Contains(d16, "ending the day before") {
+		t.Errorf("summary of 16 April (sunset 23:38 the same date) is marked:\n%s", d16)
+	}
+}

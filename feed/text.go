@@ -694,9 +694,11 @@ func noEventToday(k config.Kind) (string, string) {
 		fmt.Sprintf("No %s on this date: around this time of year it comes close to midnight and moves from one date to the next", name)
 }
 
-// describeSummary gives the daily summary: sunrise, sunset, day length and
-// civil twilight, with the polar states spelled out.
-func describeSummary(s *siteInfo, length, delta time.Duration, evs []Event, notes []Note) (string, string) {
+// describeSummary gives the daily summary of date d: sunrise, sunset, day
+// length and civil twilight, with the polar states spelled out. A sunset
+// after midnight that ends d's day is in evs with its own date; carried
+// says that d's first sunset ends the day before.
+func describeSummary(s *siteInfo, d time.Time, length, delta time.Duration, evs []Event, notes []Note, carried bool) (string, string) {
 	loc := s.TimeZone.Location
 	var b strings.Builder
 	title := fmt.Sprintf("Daylight %s", hm(length))
@@ -713,8 +715,19 @@ func describeSummary(s *siteInfo, length, delta time.Duration, evs []Event, note
 			b.WriteString(t + ".\n")
 		}
 	}
+	first := true
 	for _, e := range evs {
-		fmt.Fprintf(&b, "%s %s\n", plainNames[e.Kind.Name], ToMinute(e.Start).In(loc).Format("15:04 MST"))
+		fmt.Fprintf(&b, "%s %s", plainNames[e.Kind.Name], ToMinute(e.Start).In(loc).Format("15:04 MST"))
+		if e.Kind.Name == "sunset" {
+			switch {
+			case e.Date.After(d):
+				fmt.Fprintf(&b, " (after midnight, %s)", e.Date.Format("Mon 2 January"))
+			case carried && first:
+				b.WriteString(" (ending the day before)")
+			}
+			first = false
+		}
+		b.WriteByte('\n')
 	}
 	fmt.Fprintf(&b, "%s %s (%s from the day before), %s.", lengthName, hm(length), Change(delta), s.where)
 	return title, b.String()

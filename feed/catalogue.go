@@ -325,9 +325,40 @@ func AllDayOrder(aKind, aTitle, bKind, bTitle string) int {
 		if c := rank(aKind) - rank(bKind); c != 0 {
 			return c
 		}
-		return strings.Compare(aKind, bKind)
+		return naturalCompare(aKind, bKind)
 	}
 	return strings.Compare(aTitle, bTitle)
+}
+
+// naturalCompare orders strings as text, but runs of digits by their value:
+// "photoperiod:9h" before "photoperiod:12h".
+func naturalCompare(a, b string) int {
+	isDigit := func(c byte) bool { return '0' <= c && c <= '9' }
+	for a != "" && b != "" {
+		if isDigit(a[0]) && isDigit(b[0]) {
+			i, j := 0, 0
+			for i < len(a) && isDigit(a[i]) {
+				i++
+			}
+			for j < len(b) && isDigit(b[j]) {
+				j++
+			}
+			x, y := strings.TrimLeft(a[:i], "0"), strings.TrimLeft(b[:j], "0")
+			if c := len(x) - len(y); c != 0 {
+				return c
+			}
+			if c := strings.Compare(x, y); c != 0 {
+				return c
+			}
+			a, b = a[i:], b[j:]
+			continue
+		}
+		if a[0] != b[0] {
+			return int(a[0]) - int(b[0])
+		}
+		a, b = a[1:], b[1:]
+	}
+	return len(a) - len(b)
 }
 
 // CompareEntries is the order of a calendar's entries: by their site-local

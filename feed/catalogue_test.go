@@ -984,3 +984,17 @@ func TestBandThroughMidday(t *testing.T) {
 		t.Fatalf("%+v, %v", es, err)
 	}
 }
+
+// A date's all-day entries of one kind with different thresholds come in the
+// order of their values, as people read them: 9 h before 12 h before 14 h 30.
+func TestAllDayOrderByValue(t *testing.T) {
+	kinds := []string{"photoperiod:14h30m", "photoperiod:12h", "photoperiod:9h", "photoperiod:14h"}
+	slices.SortFunc(kinds, func(a, b string) int { return AllDayOrder(a, "", b, "") })
+	want := []string{"photoperiod:9h", "photoperiod:12h", "photoperiod:14h", "photoperiod:14h30m"}
+	if !slices.Equal(kinds, want) {
+		t.Errorf("order %v, want %v", kinds, want)
+	}
+	if c := AllDayOrder("sunrise", "", "photoperiod:9h", ""); c >= 0 {
+		t.Errorf("the catalogue's order of kinds comes first: sunrise after photoperiod (%d)", c)
+	}
+}

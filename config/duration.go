@@ -9,7 +9,7 @@ import (
 func (d Duration) D() time.Duration { return time.Duration(d) }
 
 // String writes the duration compactly: "30m", "-1h15m", "0s".
-func (d Duration) String() string { return shortDuration(time.Duration(d)) }
+func (d Duration) String() string { return ShortDuration(time.Duration(d)) }
 
 // UnmarshalText parses Go duration syntax with units: "30m", "-1h15m",
 // "90s". A bare number is refused: its unit would be a guess.

@@ -277,14 +277,14 @@ func (k Kind) String() string {
 	case KindSunBand:
 		return KindSunBand + ":" + strconv.FormatFloat(k.Altitude, 'f', -1, 64) + ".." + strconv.FormatFloat(k.High, 'f', -1, 64)
 	case KindPhotoperiod, KindLighting:
-		return k.Name + ":" + shortDuration(k.DayLength)
+		return k.Name + ":" + ShortDuration(k.DayLength)
 	}
 	return k.Name
 }
 
-// shortDuration writes d like time.Duration.String without the zero tails:
+// ShortDuration writes d like time.Duration.String without the zero tails:
 // 12h, 14h30m, 12h0m30s. The result parses back to d exactly.
-func shortDuration(d time.Duration) string {
+func ShortDuration(d time.Duration) string {
 	s := d.String()
 	if strings.HasSuffix(s, "m0s") {
 		s = strings.TrimSuffix(s, "0s")

@@ -100,7 +100,7 @@ func (q AdhocQuery) place() string {
 		b.WriteString("&" + ParamHorizon + "=" + strconv.FormatFloat(q.Horizon, 'f', -1, 64))
 	}
 	if q.Alarm != 0 {
-		b.WriteString("&" + ParamAlarm + "=" + formatDuration(q.Alarm))
+		b.WriteString("&" + ParamAlarm + "=" + config.ShortDuration(q.Alarm))
 	}
 	if len(q.Offsets) > 0 {
 		b.WriteString("&" + ParamOffsets + "=" + url.QueryEscape(q.offsetList()))

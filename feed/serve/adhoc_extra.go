@@ -56,7 +56,7 @@ func (q *AdhocQuery) parseExtras(get getter, lim *adhocLimits) error {
 		if err != nil || d <= 0 || d >= 24*time.Hour {
 			return &QueryError{Param: ParamLighting, Value: v, Msg: `must be a day length between 0 and 24h, e.g. "16h" or "14h30m"`}
 		}
-		k, err := lim.parseKind(config.KindLighting + ":" + formatDuration(d))
+		k, err := lim.parseKind(config.KindLighting + ":" + config.ShortDuration(d))
 		if err != nil {
 			return &QueryError{Param: ParamLighting, Value: v, Msg: oneLine(err.Error())}
 		}
@@ -118,19 +118,7 @@ func (q *AdhocQuery) parseOffsets(v string, lim *adhocLimits) error {
 func (q AdhocQuery) offsetList() string {
 	items := make([]string, 0, len(q.Offsets))
 	for _, k := range slices.Sorted(maps.Keys(q.Offsets)) {
-		items = append(items, k+":"+formatDuration(q.Offsets[k]))
+		items = append(items, k+":"+config.ShortDuration(q.Offsets[k]))
 	}
 	return strings.Join(items, ",")
-}
-
-// formatDuration writes 16h0m0s as "16h", 14h30m0s as "14h30m", 15m0s as "15m".
-func formatDuration(d time.Duration) string {
-	s := d.String()
-	if strings.HasSuffix(s, "m0s") {
-		s = strings.TrimSuffix(s, "0s")
-	}
-	if strings.HasSuffix(s, "h0m") {
-		s = strings.TrimSuffix(s, "0m")
-	}
-	return s
 }

@@ -190,9 +190,9 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 	last := col.last
 	days := int(col.last.Sub(col.first).Hours()/24) + 1
 	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: make(map[string]int, days*len(specs)), noted: map[string]bool{}, last: civil(last)}
-	w.out = newEntries(days*(len(specs)+1) + room)
-	w.text = newText(days * textPerEntry)
-	defer func() { releaseText(w.text) }()
+	w.out = releasedEntries.get(days*(len(specs)+1) + room)
+	w.text = textBuffers.get(days * textPerEntry)
+	defer func() { textBuffers.put(w.text) }()
 	if err := col.prepare(altitudes(col.p.Observer, specs)...); err != nil {
 		return nil, err
 	}
@@ -230,72 +230,49 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 	return w.out, nil
 }
 
-// releasedEntries keeps the entries' memory of released calendars
-// (Calendar.Release) for the next calendar's: an ad-hoc year feed's
-// entries take about 0.6 MB, and a server making one feed after another
-// spent much of its time collecting them.
-var releasedEntries sync.Pool // of *[]Entry, empty
+// slicePool keeps the memory of slices a feed has done with for the next
+// feed's: a server making one feed after another spent much of its time
+// collecting them.
+type slicePool[T any] struct{ p sync.Pool } // of *[]T, empty
+
+// get returns an empty slice with room for n elements, a used one when one
+// has enough.
+func (sp *slicePool[T]) get(n int) []T {
+	if p, ok := sp.p.Get().(*[]T); ok && cap(*p) >= n {
+		return *p
+	}
+	return make([]T, 0, n)
+}
+
+// put gives s back for get; nothing it held is kept alive. Neither s nor
+// what it holds may be used after the call.
+func (sp *slicePool[T]) put(s []T) {
+	s = s[:cap(s)]
+	clear(s)
+	s = s[:0]
+	sp.p.Put(&s)
+}
+
+var (
+	// releasedEntries holds the entries of released calendars
+	// (Calendar.Release): about 0.6 MB for an ad-hoc year feed.
+	releasedEntries slicePool[Entry]
+	// textBuffers holds the entry writers' text buffers (entryWriter.text):
+	// flushText copies the text into the entries' strings, so the buffer is
+	// scratch once the entries are written (about 140 kB for a year of four
+	// kinds).
+	textBuffers slicePool[byte]
+	// scratchEvents holds collectors' event buffers (see feedEntries):
+	// about 0.2 MB for a year of four kinds.
+	scratchEvents slicePool[Event]
+)
 
 // Release tells that c and its entries are no longer used: their memory
 // serves a calendar built after. Neither c nor its entries may be used
 // after the call.
 func (c *Calendar) Release() {
-	es := c.Entries[:cap(c.Entries)]
-	clear(es) // nothing kept alive by the old entries' strings
-	es = es[:0]
+	releasedEntries.put(c.Entries)
 	c.Entries = nil
-	releasedEntries.Put(&es)
-}
-
-// newEntries returns an empty slice with room for n entries, from a
-// released calendar when one has enough.
-func newEntries(n int) []Entry {
-	if p, ok := releasedEntries.Get().(*[]Entry); ok && cap(*p) >= n {
-		return *p
-	}
-	return make([]Entry, 0, n)
-}
-
-// textBuffers keeps the entry writers' text buffers (entryWriter.text) for
-// the next feed's: flushText copies the text into the entries' strings, so
-// the buffer is scratch once the entries are written (about 140 kB for a
-// year of four kinds).
-var textBuffers sync.Pool // of *[]byte, empty
-
-// newText returns an empty buffer with room for n bytes, a used one when
-// one has enough.
-func newText(n int) []byte {
-	if p, ok := textBuffers.Get().(*[]byte); ok && cap(*p) >= n {
-		return *p
-	}
-	return make([]byte, 0, n)
-}
-
-// releaseText gives a text buffer back for newText.
-func releaseText(b []byte) {
-	b = b[:0]
-	textBuffers.Put(&b)
-}
-
-// scratchEvents keeps collectors' event buffers for the next feed's (see
-// feedEntries): about 0.2 MB for a year of four kinds.
-var scratchEvents sync.Pool // of *[]Event, empty
-
-// reusedEvents returns an empty event buffer, a used one when there is one.
-func reusedEvents() []Event {
-	if p, ok := scratchEvents.Get().(*[]Event); ok {
-		return *p
-	}
-	return nil
-}
-
-// releaseEvents gives an event buffer back for reusedEvents; nothing it
-// held is kept alive.
-func releaseEvents(es []Event) {
-	es = es[:cap(es)]
-	clear(es)
-	es = es[:0]
-	scratchEvents.Put(&es)
 }
 
 // kindRank is each kind's place in the catalogue (config.KindNames).

@@ -65,9 +65,9 @@ func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed,
 	if len(f.Plans) == 0 {
 		// the collector's events are scratch here: entries copies each
 		// into an entry and nothing else sees the collector
-		col.events = reusedEvents()
+		col.events = scratchEvents.get(0)
 		es, err := sky.entries(col, s, f.ID, f.Kinds, 0)
-		releaseEvents(col.events)
+		scratchEvents.put(col.events)
 		if err != nil {
 			return nil, err
 		}

@@ -459,57 +459,30 @@ func summaries(col *collector, w *entryWriter, spec config.KindSpec) error {
 	byStart := func(evs []Event) {
 		sort.Slice(evs, func(a, b int) bool { return evs[a].Start.Before(evs[b].Start) })
 	}
-	carried := false // the date's first sunset ends the day before
+	var late []time.Time // flat horizon: the sunsets after midnight that end a day
+	if !col.p.direct() {
+		var err error
+		if late, err = sub.dayEnds(col.p.riseAlt()); err != nil {
+			return err
+		}
+	}
 	for i, d := 0, col.first; !d.After(col.last); i, d = i+1, d.AddDate(0, 0, 1) {
 		evs, ns := byDate[d], notes[d]
 		byStart(evs)
-		late := false
-		if !col.p.direct() {
-			next := byDate[d.AddDate(0, 0, 1)]
-			byStart(next)
-			if set, ok := lateSunset(evs, next); ok {
-				late = true
-				// The day's sunset comes after midnight: the day length
-				// counts it, so the summary shows it instead of saying
-				// there is no sunset today.
-				evs = append(evs[:len(evs):len(evs)], set)
-				ns = slices.DeleteFunc(slices.Clone(ns), func(n Note) bool {
-					return n.Kind.Name == "sunset" && n.State == astro.Crosses
-				})
-			}
+		if t := sub.lateEnd(late, d); !t.IsZero() {
+			// The day's sunset comes after midnight: the day length
+			// counts it, so the summary shows it instead of saying
+			// there is no sunset today.
+			set := Event{Kind: config.Kind{Name: "sunset"}, Start: t, Direction: astro.Setting, Date: d.AddDate(0, 0, 1)}
+			evs = append(evs[:len(evs):len(evs)], set)
+			ns = slices.DeleteFunc(slices.Clone(ns), func(n Note) bool {
+				return n.Kind.Name == "sunset" && n.State == astro.Crosses
+			})
 		}
+		carried := !sub.lateEnd(late, d.AddDate(0, 0, -1)).IsZero() // the date's first sunset ends the day before
 		w.summary(spec, d, sub.lengths[i+1], sub.lengths[i+1]-sub.lengths[i], evs, ns, carried)
-		carried = late
 	}
 	return nil
-}
-
-// lateSunset finds the sunset that ends a day after midnight: evs are a
-// date's events in order, next the following date's; the date's last
-// sunrise has no sunset after it on the same date, and the next date's
-// first Sun event is a sunset less than 24 h after that sunrise.
-func lateSunset(evs, next []Event) (Event, bool) {
-	var rise *Event
-	for i := range evs {
-		switch evs[i].Kind.Name {
-		case "sunrise":
-			rise = &evs[i]
-		case "sunset":
-			rise = nil
-		}
-	}
-	if rise == nil {
-		return Event{}, false
-	}
-	for _, e := range next {
-		switch e.Kind.Name {
-		case "sunrise":
-			return Event{}, false
-		case "sunset":
-			return e, e.Start.Sub(rise.Start) < 24*time.Hour
-		}
-	}
-	return Event{}, false
 }
 
 // entryWriter turns events and notes into entries with stable UIDs.

@@ -150,3 +150,26 @@ func TestSummaryShowsSunsetAfterMidnight(t *testing.T) {
 		t.Errorf("summary of 16 April (sunset 23:38 the same date) is marked:\n%s", d16)
 	}
 }
+
+// The day that ends after midnight is the same one whatever the window: a
+// calendar whose last date is 17 April shows that date's sunset after
+// midnight, and one whose first date is 18 April says its early sunset
+// ends the day before, as the three-date calendar above does (one record of
+// the days that end after midnight, dayEnds, serves every date of the
+// window and its neighbours).
+func TestSummaryAfterMidnightAtWindowEdges(t *testing.T) {
+	s := site(t, "isfjell-hut", 78.2, 15.6, "Arctic/Longyearbyen")
+	for _, c := range []struct{ day, want string }{
+		{"2027-04-17", "Sunset 00:03 CEST (after midnight, Sun 18 April)"},
+		{"2027-04-18", "Sunset 00:03 CEST (ending the day before)"},
+	} {
+		sk := sky(t, c.day, c.day)
+		es, err := sk.Entries(context.Background(), s, "hut", []config.KindSpec{{Kind: mustKinds(t, "daily-summary")[0]}}, date(c.day), date(c.day))
+		if err != nil || len(es) != 1 {
+			t.Fatalf("entries %v, %v; want one summary", es, err)
+		}
+		if d := es[0].Description; strings.Contains(d, "No sunset") || !strings.Contains(d, c.want) {
+			t.Errorf("summary of %s alone does not say %q:\n%s", c.day, c.want, d)
+		}
+	}
+}

@@ -17,10 +17,10 @@ const (
 )
 
 // daylight is the natural light of one local date, counted as the day
-// length of the daily summary and photoperiod is (dayLengths): a daylight
-// period shorter than a day belongs whole to the date of its sunrise, even
-// when its sunset falls after midnight; a longer one counts on each date for
-// its own part. first is the date's first instant of light (its start when
+// length of the daily summary and photoperiod is (dayLengths, dayEnds): a
+// daylight period shorter than a day belongs whole to the date of its
+// sunrise, even when its sunset falls after midnight; a longer one counts on
+// each date for its own part. first is the date's first instant of light (its start when
 // the Sun is up from a longer period), last the end of its last one (its end
 // when the Sun stays up). dawnFrom is when the dark before first begins
 // (first itself when there is none), duskTo when the dark after last ends
@@ -54,11 +54,16 @@ func (c *collector) daylights(alt float64) ([]daylight, error) {
 			spans[len(spans)-1].s = x.Time
 		}
 	}
+	late, err := c.dayEnds(alt)
+	if err != nil {
+		return nil, err
+	}
 	starts := c.dayStarts()
 	out := make([]daylight, 0, len(starts)-3)
 	j := 0
 	for i := 0; i+3 < len(starts); i++ {
 		start, end := starts[i+1], starts[i+2]
+		endsBefore, endsHere := late[i+1], late[i+2] // the days of the date before and of this one, past midnight
 		for j < len(spans) && spans[j].s.Before(start) {
 			j++
 		}
@@ -67,21 +72,18 @@ func (c *collector) daylights(alt float64) ([]daylight, error) {
 		for k := j; k < len(spans) && spans[k].r.Before(end); k++ {
 			sp := spans[k]
 			a, b := sp.r, sp.s
-			if b.Sub(a) < 24*time.Hour { // whole on the date of its sunrise
-				if a.Before(start) {
-					dl.touched = dl.touched || b.After(start)
+			if a.Before(start) {
+				if b.Equal(endsBefore) { // the date before's day
+					dl.touched = true
 					continue
 				}
-			} else {
-				if a.Before(start) {
-					a = start
-				}
-				if b.After(end) {
-					b = end
-				}
-				if !b.After(a) {
-					continue
-				}
+				a = start
+			}
+			if b.After(end) && !b.Equal(endsHere) {
+				b = end
+			}
+			if !b.After(a) {
+				continue
 			}
 			dl.length += b.Sub(a)
 			if fi < 0 {

@@ -441,6 +441,9 @@ func (c *collector) compute(k config.Kind) error {
 type threshold struct {
 	xs      []astro.Crossing
 	upFirst bool // above the altitude at the start of the span
+	// lateEnds is the record of days that end after midnight (see
+	// dayEnds), made once.
+	lateEnds []time.Time
 }
 
 // thresholdSpan is the UTC span over which crossings are computed: the
@@ -565,22 +568,24 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 		return err
 	}
 	horizon := family == "sun-horizon"
+	var late []time.Time // flat horizon: the sunsets after midnight that end a day
 	if horizon {
 		if err := c.dayLengths(); err != nil {
 			return err
 		}
+		if alt != skylineKey {
+			if late, err = c.dayEnds(alt); err != nil {
+				return err
+			}
+		}
 	}
 	xs, up := th.xs, th.upFirst
-	var rose time.Time // the last sunrise before the crossing at hand
 	c.events = slices.Grow(c.events, len(xs))
 	starts := c.dayStarts()
 	for i, d := 0, c.first; !d.After(c.last); i, d = i+1, d.Add(24*time.Hour) { // UTC dates: a day is 24 h
 		start, end := starts[i+1], starts[i+2]
 		for len(xs) > 0 && xs[0].Time.Before(start) {
 			up = xs[0].Direction == astro.Rising
-			if up {
-				rose = xs[0].Time
-			}
 			xs = xs[1:]
 		}
 		crossed := false
@@ -596,17 +601,13 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 			x := xs[0]
 			xs = xs[1:]
 			up, crossed = x.Direction == astro.Rising, true
-			prevRise := rose
-			if up {
-				rose = x.Time
-			}
 			if dir != 0 && x.Direction != dir || keep >= 0 && j != keep {
 				continue
 			}
 			e := Event{Kind: k, Start: x.Time, Direction: x.Direction, Date: d}
 			if horizon {
 				e.DayLength, e.DayChange = c.lengths[i+1], c.lengths[i+1]-c.lengths[i]
-				if alt != skylineKey && !up && prevRise.Before(start) && x.Time.Sub(prevRise) < 24*time.Hour {
+				if late != nil && !up && x.Time.Equal(late[i+1]) {
 					// a sunset after midnight ends the day of the date before
 					before := c.lengthBefore
 					if i > 0 {
@@ -720,13 +721,12 @@ func (c *collector) hidden(k config.Kind) error {
 
 // dayLengths computes, once, the day length of each local date
 // first-1..last: the photoperiod. With a flat horizon it is the time from
-// the date's sunrise to the sunset that ends that day, even past midnight:
-// a daylight period shorter than a day counts in full on the date of its
-// sunrise (at 78° N in April the Sun rises at 02:14 and sets at 00:03 the
-// next day: a day of 21 h 48 min on the date of the sunrise, not 21 h 46 min
-// and 2 min more on the next date), and a longer one (the Sun up for days)
-// counts on each date for its own part. With a skyline it is the time the
-// Sun is over the skyline within the date.
+// the date's sunrise to the sunset that ends that day, even past midnight
+// (see dayEnds): at 78° N in April the Sun rises at 02:14 and sets at 00:03
+// the next day, a day of 21 h 48 min on the date of the sunrise, not
+// 21 h 46 min and 2 min more on the next date; a period of more than a day
+// (the Sun up for days) counts on each date for its own part. With a
+// skyline it is the time the Sun is over the skyline within the date.
 func (c *collector) dayLengths() error {
 	if c.lengths != nil {
 		return nil
@@ -737,38 +737,71 @@ func (c *collector) dayLengths() error {
 		return err
 	}
 	if alt != skylineKey {
-		c.daylightPeriods(l)
+		// the part of a day that runs past midnight moves from the next
+		// date to the date of its sunrise
+		late, err := c.dayEnds(alt)
+		if err != nil {
+			return err
+		}
+		starts := c.dayStarts()
+		for i := range l { // late[i] and l[i] are both the date first-2+i
+			if late[i].IsZero() {
+				continue
+			}
+			spill := late[i].Sub(starts[i]) // starts[i]: the midnight ending the date
+			l[i] += spill
+			if i+1 < len(l) {
+				l[i+1] -= spill
+			}
+		}
 	}
 	c.lengthBefore, c.lengths = l[0], l[1:]
 	return nil
 }
 
-// daylightPeriods moves into l (the time above the horizon within each date
-// first-2..last) the part of each daylight period shorter than a day that
-// runs past the midnight ending the date of its sunrise, from the next date
-// to the date of the sunrise.
-func (c *collector) daylightPeriods(l []time.Duration) {
-	th := c.thresholds[c.p.riseAlt()]
+// dayEnds is the one record of which sunset ends a day after midnight, for
+// the threshold alt (the horizon, or civil twilight for lamps' natural
+// light): for each local date first-2..last+1 (index 0 is first-2), the
+// instant the Sun goes below alt after the midnight ending the date, when
+// that ends a period above alt that began on the date and lasted less than
+// a day; zero for the other dates. Such a period is that date's day, whole:
+// its length counts on the date of its sunrise (dayLengths, lamps), its
+// sunset is listed in the date's daily summary, and the next date does not
+// count it as its own.
+func (c *collector) dayEnds(alt float64) ([]time.Time, error) {
+	th, err := c.threshold(alt)
+	if err != nil {
+		return nil, err
+	}
+	if th.lateEnds != nil {
+		return th.lateEnds, nil
+	}
 	first := c.first.AddDate(0, 0, -2)
+	late := make([]time.Time, int(c.last.Sub(first).Hours()/24+0.5)+2)
 	for k := 0; k+1 < len(th.xs); k++ {
 		rise, set := th.xs[k], th.xs[k+1]
 		if rise.Direction != astro.Rising || set.Direction != astro.Setting || set.Time.Sub(rise.Time) >= 24*time.Hour {
 			continue
 		}
-		d := civil(rise.Time.In(c.p.Location))
-		end := midnight(d.AddDate(0, 0, 1), c.p.Location)
-		if !set.Time.After(end) {
+		d := localDate(rise.Time, c.p.Location)
+		i := int(d.Sub(first).Hours()/24 + 0.5)
+		if i < 0 || i >= len(late) || !set.Time.After(midnight(d.AddDate(0, 0, 1), c.p.Location)) {
 			continue
 		}
-		spill := set.Time.Sub(end)
-		i := int(d.Sub(first).Hours()/24 + 0.5) // the index of the sunrise's date in l
-		if i >= 0 && i < len(l) {
-			l[i] += spill
-		}
-		if i+1 >= 0 && i+1 < len(l) {
-			l[i+1] -= spill
-		}
+		late[i] = set.Time
 	}
+	th.lateEnds = late
+	return late, nil
+}
+
+// lateEnd returns the sunset after midnight that ends the day of the local
+// date d (first-2..last+1) in the record late of dayEnds, or zero.
+func (c *collector) lateEnd(late []time.Time, d time.Time) time.Time {
+	i := int(d.Sub(c.first.AddDate(0, 0, -2)).Hours()/24 + 0.5)
+	if i < 0 || i >= len(late) {
+		return time.Time{}
+	}
+	return late[i]
 }
 
 // above returns, for each local date first-1..last, the time the Sun's

@@ -49,7 +49,7 @@ type Entry struct {
 
 // Facts are the values an entry was written from. Zero fields do not apply.
 type Facts struct {
-	Part        string          // "morning", "evening", "all-day", "polar-night"…
+	Part        string          // "morning", "evening", "all-day", "polar-night", "behind-skyline"…
 	Direction   astro.Direction // threshold crossings: rising or setting
 	Note        bool            // an all-day note for a date without the event
 	State       astro.State     // notes: on which side the Sun or Moon stays

@@ -14,6 +14,10 @@ const (
 	partMorning    = "morning"
 	partEvening    = "evening"
 	partPolarNight = "polar-night"
+	// partBehindSkyline: no natural light on the date because the Sun, up
+	// over the flat horizon at noon, stays behind the site's skyline (or
+	// under its horizon altitude) all day. Not polar night.
+	partBehindSkyline = "behind-skyline"
 )
 
 // daylight is the natural light of one local date, counted as the day
@@ -126,7 +130,7 @@ func (c *collector) lighting(k config.Kind) error {
 	if err != nil {
 		return err
 	}
-	var noons map[time.Time]time.Time
+	var noons map[time.Time]astro.Transit
 	needs := make([]bool, len(days))
 	for i, dl := range days {
 		// a date whose only light is the date before's day, past midnight,
@@ -138,12 +142,14 @@ func (c *collector) lighting(k config.Kind) error {
 			if err != nil {
 				return err
 			}
-			noons = make(map[time.Time]time.Time, len(ts))
+			noons = make(map[time.Time]astro.Transit, len(ts))
 			for _, t := range ts {
-				noons[localDate(t.Time, c.p.Location)] = t.Time
+				noons[localDate(t.Time, c.p.Location)] = t
 			}
 		}
 	}
+	flat := c.p.Observer // the same place with a flat horizon: is the Sun up at all?
+	flat.Horizon = 0
 	lim := limitsOf(spec)
 	minLen := spec.MinDuration.D()
 	lamps := spec.Lamps
@@ -207,14 +213,19 @@ func (c *collector) lighting(k config.Kind) error {
 		var ps [2]Event
 		switch {
 		case dl.length == 0:
-			noon, ok := noons[d]
+			tr, ok := noons[d]
+			noon := tr.Time
 			if !ok {
 				noon = midnight(d, c.p.Location).Add(12 * time.Hour)
 			}
-			ps[0] = period(partPolarNight, noon.Add(-short/2), noon.Add(short-short/2))
+			part := partPolarNight
+			if ok && alt != astro.CivilTwilight && tr.Altitude > flat.RiseSetAltitude() {
+				part = partBehindSkyline // up at noon, but not over the skyline
+			}
+			ps[0] = period(part, noon.Add(-short/2), noon.Add(short-short/2))
 			if lost := short - ps[0].Lamp; lost > 0 {
 				// cut at one end: moved towards the other, as far as its limit allows
-				p := period(partPolarNight, ps[0].Start.Add(-lost), ps[0].End.Add(lost))
+				p := period(part, ps[0].Start.Add(-lost), ps[0].End.Add(lost))
 				p.MadeUp, p.MadeUpWhy = p.Lamp-ps[0].Lamp, "clipped"
 				ps[0] = p
 			}
@@ -481,10 +492,11 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e Even
 		t = append(append(append(t, ", to reach "...), lt.target...), ')')
 	}
 	part := e.Part
-	if part == partPolarNight {
+	whole := part == partPolarNight || part == partBehindSkyline // one period round solar noon
+	if whole {
 		part = "polar night, centred on solar noon"
-		if e.DirectSun {
-			part = "no direct Sun, centred on solar noon"
+		if e.Part == partBehindSkyline {
+			part = "the Sun stays behind the skyline, centred on solar noon"
 		}
 		if e.Clipped {
 			part = strings.Replace(part, "centred on solar noon", "as near solar noon as the limits allow", 1)
@@ -500,9 +512,9 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e Even
 		other = partEvening
 	}
 	switch {
-	case e.Part == partPolarNight && e.Clipped && e.Short:
+	case whole && e.Clipped && e.Short:
 		b = append(b, lt.clipped...)
-	case e.Part == partPolarNight && e.Clipped:
+	case whole && e.Clipped:
 		b = append(append(append(append(b, "Moved within the limits ("...), lt.limits...), "): the target of "...), lt.target...)
 		b = append(b, " is reached.\n"...)
 	case e.MadeUp > 0 && e.MadeUpWhy == "minimum":
@@ -517,7 +529,7 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e Even
 		b = append(append(b, lt.limits...), ").\n"...)
 	}
 	switch {
-	case e.Part == partPolarNight:
+	case whole:
 	case e.Clipped && e.Short:
 		b = append(b, lt.clipped...)
 	case e.Clipped:

@@ -535,3 +535,55 @@ func TestLightingDayAcrossMidnight(t *testing.T) {
 		}
 	}
 }
+
+// A date without natural light because of the site's skyline is not polar
+// night. At 80° N, 0° (USNO tables, UT, 2015) the Sun rises over the flat
+// horizon on 21 February (row sun-0159/0160: 11:21–13:09) and 21 October
+// (sun-0179/0180: 11:02–12:24) but, so briefly, never reaches 5°: behind a
+// skyline of 5° all round, or under a horizon altitude of 5°, those dates
+// have no direct Sun and their lamps say "behind-skyline"; on 21 December
+// (sun-0182, the Sun does not rise) they stay "polar-night", skyline or
+// not, and so they do with civil twilight as the natural light.
+func TestLightingBehindSkylineIsNotPolarNight(t *testing.T) {
+	sk := sky(t, "2015-01-01", "2015-12-31")
+	skyline := site(t, "lat80", 80, 0, "UTC")
+	skyline.Skyline = [][2]float64{{0, 5}, {120, 5}, {240, 5}}
+	hills := site(t, "lat80", 80, 0, "UTC")
+	hills.Horizon = 5
+	flat := site(t, "lat80", 80, 0, "UTC")
+	part := func(s *config.Site, d string, natural string) (string, string) {
+		spec := lightingSpec(t, "lighting:16h", func(ks *config.KindSpec) { ks.Natural = natural })
+		es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date(d), date(d))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(es) != 1 {
+			t.Fatalf("%s: %+v, want one lamp period", d, es)
+		}
+		return es[0].Facts.Part, es[0].Description
+	}
+	for _, s := range []*config.Site{skyline, hills} {
+		for _, d := range []string{"2015-02-21", "2015-10-21"} {
+			p, desc := part(s, d, "")
+			if p != partBehindSkyline || !strings.Contains(desc, "Supplemental lighting (the Sun stays behind the skyline, centred on solar noon)") ||
+				strings.Contains(desc, "polar night") {
+				t.Errorf("%s behind a 5° skyline (%v): part %q\n%s", d, s.Skyline, p, desc)
+			}
+		}
+		if p, desc := part(s, "2015-12-21", ""); p != partPolarNight || !strings.Contains(desc, "(polar night, centred on solar noon)") {
+			t.Errorf("21 December behind a 5° skyline: part %q\n%s", p, desc)
+		}
+	}
+	// the same dates with a flat horizon have a natural day: lamps in the evening
+	for _, d := range []string{"2015-02-21", "2015-10-21"} {
+		if p, _ := part(flat, d, ""); p != partEvening {
+			t.Errorf("%s at a flat horizon: part %q, want evening", d, p)
+		}
+	}
+	// civil twilight as natural light: 21 December at 80° N has none
+	// (the Sun's noon altitude, about −13.4°, is below −6°: common practice
+	// value from the solstice declination −23.4°) — polar night, skyline or not
+	if p, _ := part(skyline, "2015-12-21", config.NaturalCivil); p != partPolarNight {
+		t.Errorf("21 December, civil natural light, skyline: part %q", p)
+	}
+}

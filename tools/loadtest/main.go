@@ -287,51 +287,6 @@ func pct(sorted []time.Duration, p int) time.Duration {
 	return sorted[i].Round(time.Microsecond)
 }
 
-// load sends up to n requests from conns workers for at most d. next builds
-// request i.
-func load(ctx context.Context, name string, conns, n int, d time.Duration, next func(i int) (*http.Request, error)) *result {
-	client := newClient(conns)
-	defer client.CloseIdleConnections()
-	ctx, cancel := context.WithTimeout(ctx, d)
-	defer cancel()
-	var issued atomic.Int64
-	return measure(name, conns, n, func(l *tally) {
-		for ctx.Err() == nil {
-			i := int(issued.Add(1)) - 1
-			if i >= n {
-				return
-			}
-			req, err := next(i)
-			if err != nil {
-				l.errors++
-				l.firstErr = cmp(l.firstErr, err)
-				continue
-			}
-			t0 := time.Now()
-			resp, err := client.Do(req.WithContext(ctx))
-			if err != nil {
-				if ctx.Err() == nil {
-					l.errors++
-					l.firstErr = cmp(l.firstErr, err)
-				}
-				continue
-			}
-			nb, err := io.Copy(io.Discard, resp.Body)
-			resp.Body.Close()
-			if err != nil {
-				if ctx.Err() == nil {
-					l.errors++
-					l.firstErr = cmp(l.firstErr, err)
-				}
-				continue
-			}
-			l.lat = append(l.lat, time.Since(t0))
-			l.statuses[resp.StatusCode]++
-			l.bytes += nb
-		}
-	})
-}
-
 // tally is what one connection of a run counted.
 type tally struct {
 	lat      []time.Duration
@@ -404,23 +359,24 @@ func measureFeed(ctx context.Context, c config) error {
 
 	u, _ := url.Parse(c.feed)
 	full := rawLoad(ctx, "cached feed, full GET (Accept-Encoding: gzip) → 200", u, c.concurrency, c.requests, c.duration,
-		"Accept-Encoding: gzip\r\n")
+		fixedRequest(u, "Accept-Encoding: gzip\r\n"))
 	full.print()
 	cond := rawLoad(ctx, "cached feed, conditional GET (If-None-Match) → 304", u, c.concurrency, c.requests, c.duration,
-		"Accept-Encoding: gzip\r\nIf-None-Match: "+etag+"\r\n")
+		fixedRequest(u, "Accept-Encoding: gzip\r\nIf-None-Match: "+etag+"\r\n"))
 	cond.print()
 	return nil
 }
 
-// rawLoad is load for one fixed request, over plain keep-alive TCP
-// connections with one request in flight on each (no pipelining): the
-// request bytes are built once and responses are read with
-// http.ReadResponse. This costs the client a fraction of what
-// net/http.Client does, leaving the shared CPUs to the server.
-func rawLoad(ctx context.Context, name string, u *url.URL, conns, n int, d time.Duration, headers string) *result {
+// rawLoad sends up to n requests from conns workers for at most d, over
+// plain keep-alive TCP connections with one request in flight on each (no
+// pipelining). request appends the bytes of request i (the request line
+// and headers, ending with the empty line) to dst; the responses are read
+// whole with http.ReadResponse, bodies as sent (gzip is not inflated).
+// This costs the client a fraction of what net/http.Client does, leaving
+// the shared CPUs to the server.
+func rawLoad(ctx context.Context, name string, u *url.URL, conns, n int, d time.Duration, request func(dst []byte, i int) []byte) *result {
 	ctx, cancel := context.WithTimeout(ctx, d)
 	defer cancel()
-	reqBytes := []byte("GET " + u.RequestURI() + " HTTP/1.1\r\nHost: " + u.Host + "\r\nUser-Agent: heliocal-loadtest\r\n" + headers + "\r\n")
 	var issued atomic.Int64
 	return measure(name, conns, n, func(l *tally) {
 		var conn net.Conn
@@ -440,10 +396,13 @@ func rawLoad(ctx context.Context, name string, u *url.URL, conns, n int, d time.
 				conn = nil
 			}
 		}
+		var req []byte
 		for ctx.Err() == nil {
-			if int(issued.Add(1)) > n {
+			i := int(issued.Add(1)) - 1
+			if i >= n {
 				return
 			}
+			req = request(req[:0], i)
 			if conn == nil {
 				c, err := loopbackDialer(ctx, "tcp", u.Host)
 				if err != nil {
@@ -454,7 +413,7 @@ func rawLoad(ctx context.Context, name string, u *url.URL, conns, n int, d time.
 				context.AfterFunc(ctx, func() { c.SetDeadline(time.Unix(1, 0)) })
 			}
 			t0 := time.Now()
-			if _, err := conn.Write(reqBytes); err != nil {
+			if _, err := conn.Write(req); err != nil {
 				fail(err)
 				continue
 			}
@@ -480,6 +439,19 @@ func rawLoad(ctx context.Context, name string, u *url.URL, conns, n int, d time.
 	})
 }
 
+// fixedRequest is a request builder for rawLoad that sends the same GET of
+// u with headers (each ending in CRLF) every time.
+func fixedRequest(u *url.URL, headers string) func([]byte, int) []byte {
+	b := requestHead(u.Host) + headers + "\r\n"
+	line := "GET " + u.RequestURI() + " HTTP/1.1\r\n"
+	return func(dst []byte, _ int) []byte { return append(append(dst, line...), b...) }
+}
+
+// requestHead is the Host and User-Agent header lines.
+func requestHead(host string) string {
+	return "Host: " + host + "\r\nUser-Agent: heliocal-loadtest\r\n"
+}
+
 // measureAdhoc: a new place per request (a cache miss each time) unless
 // -adhoc-cached.
 func measureAdhoc(ctx context.Context, c config) error {
@@ -494,23 +466,36 @@ func measureAdhoc(ctx context.Context, c config) error {
 	if c.adhocCached {
 		name = "ad-hoc feed, one repeated query (cache hit) → 200"
 	}
-	r := load(ctx, name, c.adhocConc, c.adhocRequests, c.duration, func(i int) (*http.Request, error) {
-		lat := c.lat
-		if !c.adhocCached {
-			lat += float64(i) * 0.001
-		}
-		v := u.Query()
-		v.Set("lat", strconv.FormatFloat(lat, 'f', 4, 64))
-		uu := *u
-		uu.RawQuery = v.Encode()
-		r, err := http.NewRequest("GET", uu.String(), nil)
-		if err == nil {
-			r.Header.Set("Accept-Encoding", "gzip")
-		}
-		return r, err
-	})
+	r := rawLoad(ctx, name, u, c.adhocConc, c.adhocRequests, c.duration, adhocRequest(u, c.lat, !c.adhocCached))
 	r.print()
 	return nil
+}
+
+// adhocRequest is the request builder of the ad-hoc run: u's query with
+// lat= in front, lat0 + i × 0.001° for request i when vary is set (a new
+// place each time), lat0 otherwise; gzip accepted, as calendar clients do.
+func adhocRequest(u *url.URL, lat0 float64, vary bool) func([]byte, int) []byte {
+	path := u.EscapedPath()
+	if path == "" {
+		path = "/"
+	}
+	rest := ""
+	if u.RawQuery != "" {
+		rest = "&" + u.RawQuery
+	}
+	tail := " HTTP/1.1\r\n" + requestHead(u.Host) + "Accept-Encoding: gzip\r\n\r\n"
+	return func(dst []byte, i int) []byte {
+		lat := lat0
+		if vary {
+			lat += float64(i) * 0.001
+		}
+		dst = append(dst, "GET "...)
+		dst = append(dst, path...)
+		dst = append(dst, "?lat="...)
+		dst = strconv.AppendFloat(dst, lat, 'f', 4, 64)
+		dst = append(dst, rest...)
+		return append(dst, tail...)
+	}
 }
 
 func orDefault(s, d string) string {

@@ -1,7 +1,15 @@
 package main
 
 import (
+	"bufio"
+	"bytes"
+	"context"
+	"net/http"
+	"net/http/httptest"
+	"net/url"
+	"slices"
 	"strings"
+	"sync/atomic"
 	"testing"
 	"time"
 )
@@ -47,5 +55,63 @@ func TestPercentile(t *testing.T) {
 	}
 	if p := pct(sorted[:1], 99); p != time.Millisecond {
 		t.Errorf("p99 of one sample = %v, want 1ms", p)
+	}
+}
+
+func TestAdhocRequest(t *testing.T) {
+	u, err := url.Parse("http://127.0.0.1:18080/at.ics?lon=13.05&tz=Europe%2FVienna&days=365")
+	if err != nil {
+		t.Fatal(err)
+	}
+	build := adhocRequest(u, 47, true)
+	var lats []string
+	var buf []byte
+	for i := range 3 {
+		buf = build(buf[:0], i)
+		req, err := http.ReadRequest(bufio.NewReader(bytes.NewReader(buf)))
+		if err != nil {
+			t.Fatalf("request %d: %v\n%s", i, err, buf)
+		}
+		q := req.URL.Query()
+		if req.Method != "GET" || req.URL.Path != "/at.ics" || req.Host != "127.0.0.1:18080" ||
+			q.Get("lon") != "13.05" || q.Get("tz") != "Europe/Vienna" || q.Get("days") != "365" ||
+			req.Header.Get("Accept-Encoding") != "gzip" {
+			t.Errorf("request %d: %s %s host %q, Accept-Encoding %q", i, req.Method, req.URL, req.Host, req.Header.Get("Accept-Encoding"))
+		}
+		lats = append(lats, q.Get("lat"))
+	}
+	if want := []string{"47.0000", "47.0010", "47.0020"}; !slices.Equal(lats, want) {
+		t.Errorf("latitudes %v, want %v (a new place per request)", lats, want)
+	}
+	if buf = adhocRequest(u, 47, false)(buf[:0], 5); !bytes.Contains(buf, []byte("lat=47.0000&")) {
+		t.Errorf("repeated query: %s", buf)
+	}
+}
+
+// TestRawLoadReadsWholeResponses: the raw client counts every byte of every
+// body (gzip bodies as sent, not inflated), keeps its connections alive and
+// reconnects when the server closes one.
+func TestRawLoadReadsWholeResponses(t *testing.T) {
+	body := bytes.Repeat([]byte("BEGIN:VEVENT\r\nEND:VEVENT\r\n"), 4000) // 104 kB
+	var served atomic.Int64
+	srv := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		if served.Add(1)%7 == 0 {
+			w.Header().Set("Connection", "close")
+		}
+		if r.URL.Query().Get("lat") == "" {
+			http.Error(w, "no lat", http.StatusBadRequest)
+			return
+		}
+		w.Header().Set("Content-Encoding", "gzip") // not gzip at all: the client must not inflate
+		w.Write(body)
+	}))
+	defer srv.Close()
+	u, _ := url.Parse(srv.URL + "/at.ics?lon=1")
+	r := rawLoad(context.Background(), "test", u, 3, 50, 30*time.Second, adhocRequest(u, 10, true))
+	if r.errors != 0 || r.statuses[200] != 50 || len(r.latencies) != 50 {
+		t.Fatalf("errors %d (%v), statuses %v, %d latencies; want 50 × 200", r.errors, r.firstErr, r.statuses, len(r.latencies))
+	}
+	if want := int64(50 * len(body)); r.bytes != want {
+		t.Errorf("read %d body bytes, want %d", r.bytes, want)
 	}
 }

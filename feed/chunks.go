@@ -8,6 +8,7 @@ import (
 	"sync"
 	"time"
 
+	"heliocal/astro"
 	"heliocal/config"
 )
 
@@ -49,13 +50,14 @@ func (s *Sky) EventChunks(ctx context.Context, p Place, specs []config.KindSpec,
 	// note for the range, not one per chunk.
 	var whole []Note
 	chunked := last.After(first.AddDate(0, 0, ChunkDays-1))
-	if ps := photoperiods(specs); chunked && len(ps) > 0 {
+	if ps := kindsNamed(specs, "photoperiod"); chunked && len(ps) > 0 {
 		_, notes, err := s.eventsFor(ctx, p, ps, first, last, &buffers{})
 		if err != nil {
 			return err
 		}
 		whole = notes
 	}
+	lamps := kindsNamed(specs, "lighting")
 	var starts []time.Time
 	for d := first; !d.After(last); d = d.AddDate(0, 0, ChunkDays) {
 		starts = append(starts, d)
@@ -74,6 +76,9 @@ func (s *Sky) EventChunks(ctx context.Context, p Place, specs []config.KindSpec,
 			notes = slices.DeleteFunc(notes, func(n Note) bool { return n.Kind.Name == "photoperiod" })
 			if i == 0 {
 				notes = append(whole, notes...)
+			}
+			if notes, err = s.joinLampNotes(ctx, p, lamps, d, end, first, last, notes); err != nil {
+				return Chunk{}, err
 			}
 		}
 		return Chunk{First: d, Last: end, Events: events, Notes: notes}, nil
@@ -175,13 +180,75 @@ func inOrder(ctx context.Context, n, workers int, compute func(context.Context, 
 	return nil
 }
 
-// photoperiods returns the photoperiod kinds of specs.
-func photoperiods(specs []config.KindSpec) []config.KindSpec {
+// kindsNamed returns the kinds of specs named name ("photoperiod").
+func kindsNamed(specs []config.KindSpec, name string) []config.KindSpec {
 	var out []config.KindSpec
 	for _, sp := range specs {
-		if sp.Kind.Name == "photoperiod" {
+		if sp.Kind.Name == name {
 			out = append(out, sp)
 		}
 	}
 	return out
+}
+
+// joinLampNotes makes the "no lamps needed" notes of the chunk d..end of
+// the range first..last those of one computation over the whole range: a
+// stretch of dates that need no lamps has one note, on its first date,
+// saying until when, even where it crosses from one chunk into the next.
+// A chunk's note on its first date is dropped when the date before (in the
+// range) needs no lamps either, and a note whose stretch reaches the
+// chunk's last date gets the first date after it that needs lamps (looked
+// up chunk by chunk; none when the stretch outlasts the range). Each date's
+// needs do not depend on the dates computed with it.
+func (s *Sky) joinLampNotes(ctx context.Context, p Place, lamps []config.KindSpec, d, end, first, last time.Time, notes []Note) ([]Note, error) {
+	// noLamps returns the "no lamps needed" note of sp dated on from, if
+	// any, computing from..to.
+	noLamps := func(sp config.KindSpec, from, to time.Time) (Note, bool, error) {
+		_, ns, err := s.eventsFor(ctx, p, []config.KindSpec{sp}, from, to, &buffers{})
+		if err != nil {
+			return Note{}, false, err
+		}
+		for _, n := range ns {
+			if n.State == astro.AlwaysAbove && n.Date.Equal(from) {
+				return n, true, nil
+			}
+		}
+		return Note{}, false, nil
+	}
+	for _, sp := range lamps {
+		mine := func(n *Note) bool { return n.Kind == sp.Kind && n.State == astro.AlwaysAbove }
+		if d.After(first) {
+			before := d.AddDate(0, 0, -1)
+			if _, ok, err := noLamps(sp, before, before); err != nil {
+				return nil, err
+			} else if ok {
+				notes = slices.DeleteFunc(notes, func(n Note) bool { return mine(&n) && n.Date.Equal(d) })
+			}
+		}
+		for i := range notes {
+			n := &notes[i]
+			if !mine(n) || !n.Until.IsZero() {
+				continue
+			}
+			for from := end.AddDate(0, 0, 1); !from.After(last); from = from.AddDate(0, 0, ChunkDays) {
+				to := from.AddDate(0, 0, ChunkDays-1)
+				if to.After(last) {
+					to = last
+				}
+				next, ok, err := noLamps(sp, from, to)
+				if err != nil {
+					return nil, err
+				}
+				if !ok {
+					n.Until = from // lamps are needed again on the chunk's first date
+					break
+				}
+				if !next.Until.IsZero() {
+					n.Until = next.Until
+					break
+				}
+			}
+		}
+	}
+	return notes, nil
 }

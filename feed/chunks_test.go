@@ -162,3 +162,77 @@ func TestSortByKey(t *testing.T) {
 		}
 	}
 }
+
+// A stretch of dates that need no lamps gets one note saying until when,
+// however the range is cut into chunks: computed chunk by chunk, the
+// lighting notes are those of one computation over the whole range. At
+// 48.2° N the natural day passes 16 h around the June solstice only (about
+// 16 h 05 min on 21 June: USNO duration-of-daylight tables for 48° N, from
+// memory), in a stretch a chunk boundary falls in when the range starts on
+// 20 December; at 89.5° N the midnight Sun lasts longer than a chunk (about
+// 190 days near the pole, common knowledge), so its stretch spans three.
+func TestEventChunksLampNotesAsWhole(t *testing.T) {
+	k, err := config.ParseKind("lighting:16h")
+	if err != nil {
+		t.Fatal(err)
+	}
+	specs := []config.KindSpec{{Kind: k}}
+	for _, c := range []struct {
+		lat, lon    float64
+		zone        string
+		first, last time.Time
+		solstice    time.Time // a date the stretch must contain
+	}{
+		{48.2, 16.4, "Europe/Vienna", time.Date(2026, 12, 20, 0, 0, 0, 0, time.UTC), time.Date(2027, 12, 31, 0, 0, 0, 0, time.UTC), time.Date(2027, 6, 21, 0, 0, 0, 0, time.UTC)},
+		{89.5, 0, "UTC", time.Date(2026, 12, 20, 0, 0, 0, 0, time.UTC), time.Date(2028, 1, 31, 0, 0, 0, 0, time.UTC), time.Date(2027, 6, 21, 0, 0, 0, 0, time.UTC)},
+		// the stretch outlasts the range: no until, one note
+		{89.5, 0, "UTC", time.Date(2026, 12, 20, 0, 0, 0, 0, time.UTC), time.Date(2027, 8, 31, 0, 0, 0, 0, time.UTC), time.Date(2027, 6, 21, 0, 0, 0, 0, time.UTC)},
+	} {
+		loc, err := time.LoadLocation(c.zone)
+		if err != nil {
+			t.Fatal(err)
+		}
+		sky, err := NewSky(c.first, c.last)
+		if err != nil {
+			t.Fatal(err)
+		}
+		p := Place{Observer: astro.Observer{Latitude: c.lat, Longitude: c.lon}, Location: loc}
+		_, want, err := sky.EventsFor(context.Background(), p, specs, c.first, c.last)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var got []Note
+		chunks := 0
+		err = sky.EventChunks(context.Background(), p, specs, c.first, c.last, func(ch Chunk) error {
+			chunks++
+			got = append(got, ch.Notes...)
+			return nil
+		})
+		if err != nil {
+			t.Fatal(err)
+		}
+		name := c.zone + " " + c.last.Format(time.DateOnly)
+		if chunks < 2 {
+			t.Fatalf("%s: %d chunk, want the range cut", name, chunks)
+		}
+		if len(got) != len(want) {
+			t.Fatalf("%s: chunked notes %+v, whole range %+v", name, got, want)
+		}
+		for i := range got {
+			if g, w := got[i], want[i]; g.Kind != w.Kind || !g.Date.Equal(w.Date) || g.State != w.State || !g.Until.Equal(w.Until) {
+				t.Errorf("%s: note %d: %s %s until %s, whole range %s %s until %s", name, i,
+					g.Kind, g.Date.Format(time.DateOnly), g.Until.Format(time.DateOnly), w.Kind, w.Date.Format(time.DateOnly), w.Until.Format(time.DateOnly))
+			}
+		}
+		// the whole range's own answer: one stretch around the solstice
+		found := false
+		for _, n := range want {
+			if n.State == astro.AlwaysAbove && !n.Date.After(c.solstice) && (n.Until.IsZero() || n.Until.After(c.solstice)) {
+				found = true
+			}
+		}
+		if !found {
+			t.Errorf("%s: no stretch without lamps around %s: %+v", name, c.solstice.Format(time.DateOnly), want)
+		}
+	}
+}

@@ -152,13 +152,19 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 			}
 		}
 	}
-	if len(problems) == 0 {
+	// The zones of sites without one are looked up only for a file
+	// without other problems; until then a missing zone is no problem.
+	inferred := len(problems) == 0
+	if inferred {
 		problems = append(problems, inferZones(c)...)
 	}
 
 	var verr *ValidationError
 	if err := c.Validate(); errors.As(err, &verr) {
 		for _, p := range verr.Problems {
+			if !inferred && p.Msg == msgZoneNotSet {
+				continue
+			}
 			if !covered(p.Path, problems) {
 				problems = append(problems, p)
 			}

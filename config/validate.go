@@ -498,9 +498,14 @@ func (s *Site) validate(ps *problems, p string) {
 		ps.add(p+".temperature_c", ftoa(*s.Temperature), fmt.Sprintf("must be within %g..%g °C", MinTemperature, MaxTemperature), "degrees Celsius, not Fahrenheit")
 	}
 	if s.TimeZone.Location == nil && s.Latitude >= -90 && s.Latitude <= 90 && s.Longitude >= -180 && s.Longitude <= 180 {
-		ps.add(p+".timezone", "", "is not set", `an IANA time zone name such as "Europe/Vienna"; ApplyDefaults takes it from the coordinates`)
+		ps.add(p+".timezone", "", msgZoneNotSet, `an IANA time zone name such as "Europe/Vienna"`)
 	}
 }
+
+// msgZoneNotSet is Validate's problem for a site without a zone: a
+// configuration read from a file takes it from the coordinates (Parse), one
+// built in code from ApplyDefaults.
+const msgZoneNotSet = "is not set"
 
 func (f *Feed) validate(ps *problems, p string) {
 	checkID(ps, p+".id", f.ID, "feed")

@@ -251,3 +251,21 @@ func TestSiteCoordinatesRequired(t *testing.T) {
 		}
 	}
 }
+
+// A site without a timezone is valid (its zone comes from the coordinates)
+// even when another part of the file has a problem: only that problem is
+// listed, not a "timezone is not set" at the site without one.
+func TestMissingZoneNoProblemBesideOthers(t *testing.T) {
+	for _, bad := range []string{"timezone: America/Santiagoo", "elevation: 20000", `latitude: "47.5"`} {
+		doc := "sites:\n  - id: a\n    longitude: 10\n    " + bad + "\n"
+		if !strings.HasPrefix(bad, "latitude") {
+			doc = "sites:\n  - id: a\n    latitude: 47\n    longitude: 10\n    " + bad + "\n"
+		}
+		doc += "  - id: b\n    latitude: 22.95\n    longitude: -82.30\nfeeds:\n  - {id: f, site: b, kinds: [sunrise]}\n"
+		_, err := Parse(strings.NewReader(doc), "yaml")
+		ps := problemsOf(t, err)
+		if len(ps) != 1 || !strings.HasPrefix(ps[0].Path, "sites[0].") {
+			t.Errorf("%s: problems %v, want one, at sites[0]", bad, ps)
+		}
+	}
+}

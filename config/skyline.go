@@ -175,16 +175,9 @@ func (s *Site) HorizonFromText(flag, v string) error {
 	}
 	s.HorizonValue = t
 	if strings.Contains(t, ":") {
-		var pts []any
-		for j, item := range strings.Split(t, ",") {
-			a, b, ok := strings.Cut(strings.TrimSpace(item), ":")
-			az, err1 := strconv.ParseFloat(strings.TrimSpace(a), 64)
-			alt, err2 := strconv.ParseFloat(strings.TrimSpace(b), 64)
-			if !ok || err1 != nil || err2 != nil {
-				return FieldError{Path: fmt.Sprintf("%s[%d]", flag, j), Value: item, Msg: "must be azimuth:altitude, two numbers",
-					Hint: "e.g. --horizon 0:2,90:8,180:1,270:4 (degrees; azimuth from the north through the east)"}
-			}
-			pts = append(pts, []any{az, alt})
+		pts, err := skylineItems(flag, t)
+		if err != nil {
+			return err
 		}
 		s.HorizonValue = pts
 	}
@@ -192,4 +185,39 @@ func (s *Site) HorizonFromText(flag, v string) error {
 		return ps[0]
 	}
 	return nil
+}
+
+// SkylineFromText reads skyline points written "azimuth:altitude" and
+// separated by commas ("0:2,90:8,180:1,270:4"), with the checks of the
+// configuration's horizon key; the error (a FieldError) names flag, with
+// the index of the point at fault, and the value. Unlike HorizonFromText it
+// reads no file: for text from the network. The points come back sorted
+// by azimuth, 360 written 0.
+func SkylineFromText(flag, v string) ([][2]float64, error) {
+	pts, err := skylineItems(flag, strings.TrimSpace(v))
+	if err != nil {
+		return nil, err
+	}
+	s := Site{HorizonValue: pts}
+	if ps := s.resolveHorizon(flag, ""); len(ps) > 0 {
+		return nil, ps[0]
+	}
+	return s.Skyline, nil
+}
+
+// skylineItems splits "azimuth:altitude" points into the form of a
+// configuration's horizon list.
+func skylineItems(flag, t string) ([]any, error) {
+	var pts []any
+	for j, item := range strings.Split(t, ",") {
+		a, b, ok := strings.Cut(strings.TrimSpace(item), ":")
+		az, err1 := strconv.ParseFloat(strings.TrimSpace(a), 64)
+		alt, err2 := strconv.ParseFloat(strings.TrimSpace(b), 64)
+		if !ok || err1 != nil || err2 != nil {
+			return nil, FieldError{Path: fmt.Sprintf("%s[%d]", flag, j), Value: item, Msg: "must be azimuth:altitude, two numbers",
+				Hint: "e.g. " + flag + " 0:2,90:8,180:1,270:4 (degrees; azimuth from the north through the east)"}
+		}
+		pts = append(pts, []any{az, alt})
+	}
+	return pts, nil
 }

@@ -85,3 +85,45 @@ func TestAdhocOffset(t *testing.T) {
 		t.Errorf("the title does not say the shift:\n%s", early)
 	}
 }
+
+// An ad-hoc skyline is the site's skyline: a skyline of 5° in every
+// direction gives the sunrise of a 5° horizon (to the second: both are
+// the upper limb at 5° with the refraction of that altitude), and the
+// feed's sunrise behind a stepped skyline is the one `heliocal events
+// --horizon` gives for the same points, later than behind 5° all round
+// when the eastern hills are higher (the Sun rises in the east-north-east
+// at 33° S in June: common practice).
+func TestAdhocSkylineFeed(t *testing.T) {
+	build := adhocFeed(newLayout(""), 24*time.Hour)
+	base := serve.AdhocQuery{Latitude: -33.45, Longitude: -70.66, Location: mustZone(t, "America/Santiago"),
+		Kinds: []string{"sunrise"}, Start: time.Date(2026, 6, 1, 0, 0, 0, 0, time.UTC), Days: 3}
+	run := func(q serve.AdhocQuery) time.Time {
+		t.Helper()
+		data, err := build(context.Background(), q, nil)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return firstStart(t, data)
+	}
+	hills := base
+	hills.Horizon = 5
+	round := base
+	round.Skyline = [][2]float64{{0, 5}, {120, 5}, {240, 5}}
+	if a, b := run(hills), run(round); !a.Equal(b) {
+		t.Errorf("sunrise behind a 5° skyline all round %s, behind a 5° horizon %s", b, a)
+	}
+	stepped := base
+	stepped.Skyline = [][2]float64{{0, 2}, {60, 12}, {120, 8}, {240, 1}}
+	got := run(stepped)
+	code, out, errOut := runCLI(t, "events", "--lat", "-33.45", "--lon", "-70.66", "--tz", "America/Santiago",
+		"--horizon", "0:2,60:12,120:8,240:1", "--kinds", "sunrise", "--from", "2026-06-01", "--to", "2026-06-01", "--format", "csv")
+	if code != 0 {
+		t.Fatalf("heliocal events: exit %d: %s", code, errOut)
+	}
+	if want := got.Format("2006-01-02T15:04:05"); !strings.Contains(out, want) {
+		t.Errorf("the ad-hoc feed's sunrise behind the skyline %s is not the one of heliocal events:\n%s", want, out)
+	}
+	if d := got.Sub(run(round)); d < 5*time.Minute {
+		t.Errorf("sunrise behind 12° in the east-north-east only %v after the one behind 5°", d)
+	}
+}

@@ -305,8 +305,59 @@ func TestBrowserBuilder(t *testing.T) {
 		t.Fatalf("no sunset on %s in %q", from, rows)
 		return time.Time{}
 	}
+	sunrise := func(rows []string) string { // the first date's sunrise row
+		t.Helper()
+		i := slices.IndexFunc(rows, func(s string) bool { return strings.HasPrefix(s, from+" sunrise ") })
+		if i < 0 {
+			t.Fatalf("no sunrise on %s in %q", from, rows)
+		}
+		return rows[i]
+	}
 	if d := firstSunset(want).Sub(firstSunset(shifted)); d != 30*time.Minute {
 		t.Errorf("the preview's sunset with offset -30 minutes is %v before the plain one, want 30m", d)
+	}
+
+	// A skyline per direction from the builder: the points reach the
+	// feed's link in their canonical form, and the preview's sunrise is
+	// the one of `heliocal events --horizon` with the same points (hills
+	// of 12° to the east-north-east, where the Sun rises at 33° S in June).
+	const skyline = "0:2, 60:12,120:8,240:1"
+	if err := chromedp.Do(ctx,
+		chromedp.SetValue(id("horizon"), skyline),
+		chromedp.Evaluate[chromedp.Void](`document.getElementById("builder").dispatchEvent(new Event("input"))`),
+		chromedp.Poll[chromedp.Void](`document.getElementById("https").value.includes("horizon=0%3A2%2C60%3A12%2C120%3A8%2C240%3A1")`),
+	); err != nil {
+		v, _ := chromedp.Run(ctx, chromedp.Evaluate[string](`document.getElementById("https").value + " | " + document.getElementById("message").textContent`))
+		t.Fatalf("skyline in the builder: %v (%s)", err, v)
+	}
+	behind, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](previewRows))
+	if err != nil {
+		t.Fatal(err)
+	}
+	code, out, errOut = runCLI(t, "events", "--lat", fmt.Sprint(lat), "--lon", fmt.Sprint(lon), "--kinds", "sunrise",
+		"--horizon", strings.ReplaceAll(skyline, " ", ""), "--from", from, "--to", from, "--format", "json")
+	if code != 0 {
+		t.Fatalf("heliocal events --horizon: exit %d: %s", code, errOut)
+	}
+	var rise struct{ Events []struct{ Start time.Time } }
+	if err := json.Unmarshal([]byte(out), &rise); err != nil || len(rise.Events) != 1 {
+		t.Fatalf("heliocal events --horizon: %v %s", err, out)
+	}
+	wantRise := from + " sunrise " + feed.ToMinute(rise.Events[0].Start).In(loc).Format("15:04")
+	if !slices.Contains(behind, wantRise) || slices.Contains(behind, sunrise(want)) {
+		t.Errorf("the preview behind the skyline lacks %q (or keeps the flat %q): %q", wantRise, sunrise(want), behind)
+	}
+	// A bad point: the server's message names the parameter and the point.
+	if err := chromedp.Do(ctx,
+		chromedp.SetValue(id("horizon"), "0:2,60:50"),
+		chromedp.Evaluate[chromedp.Void](`document.getElementById("builder").dispatchEvent(new Event("input"))`),
+		chromedp.Poll[chromedp.Void](`document.getElementById("message").textContent.includes("parameter horizon=\"0:2,60:50\": point 2 (60:50): altitude must be within -5..45 degrees")`),
+		chromedp.SetValue(id("horizon"), "0"),
+		chromedp.Evaluate[chromedp.Void](`document.getElementById("builder").dispatchEvent(new Event("input"))`),
+		chromedp.Poll[chromedp.Void](`document.getElementById("message").hidden`),
+	); err != nil {
+		v, _ := chromedp.Run(ctx, chromedp.Evaluate[string](`document.getElementById("message").textContent`))
+		t.Fatalf("a bad skyline in the builder: %v (message %q)", err, v)
 	}
 
 	// The shareable page: the same days as a printable table.
@@ -328,8 +379,7 @@ func TestBrowserBuilder(t *testing.T) {
 	if rows != 7 || !strings.Contains(text, "2026-06-21") {
 		t.Errorf("the table page has %d rows from %q…, want 7 from %s", rows, text[:min(len(text), 40)], from)
 	}
-	sunrise := want[slices.IndexFunc(want, func(s string) bool { return strings.Contains(s, " sunrise ") })]
-	if clock := sunrise[strings.LastIndex(sunrise, " ")+1:]; !strings.Contains(text, clock) {
+	if clock := sunrise(want)[strings.LastIndex(sunrise(want), " ")+1:]; !strings.Contains(text, clock) {
 		t.Errorf("the table page lacks the first sunrise %s", clock)
 	}
 	problems, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](layoutProblems))

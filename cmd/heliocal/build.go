@@ -354,6 +354,7 @@ func adhocCalendarFrom(current func() adhocSettings) serve.PreviewFunc {
 			Longitude: q.Longitude,
 			Elevation: q.Elevation,
 			Horizon:   q.Horizon,
+			Skyline:   q.Skyline,
 			TimeZone:  config.Zone{Location: q.Location},
 		}
 		if q.Name != "" {

@@ -31,7 +31,7 @@ const (
 	ParamElevation = "elev"     // metres above sea level, −500..9000 (default 0)
 	ParamUTC       = "utc"      // true/false: write times in UTC instead of tz (default false)
 	ParamName      = "name"     // the place's name in titles, 1..80 characters (default: the coordinates)
-	ParamHorizon   = "horizon"  // altitude of the skyline in degrees, -5..45 (default 0)
+	ParamHorizon   = "horizon"  // altitude of the skyline in degrees, -5..45 (default 0), or points azimuth:altitude, e.g. 0:2,90:8,180:1
 	ParamAlarm     = "alarm"    // reminder before each timed event, e.g. 15m, 0..168h (default none)
 	ParamLighting  = "lighting" // lamp target day length, e.g. 16h: adds the kind lighting:16h
 	ParamOffsets   = "offsets"  // per-kind shifts, kind:duration comma-separated, e.g. sunset:-30m (default none)
@@ -76,6 +76,10 @@ type AdhocQuery struct {
 	// ZoneFound is true when tz was not given and Location is the zone at
 	// the coordinates (config.ZoneAt).
 	ZoneFound bool
+	// Skyline, when set (Horizon is then 0), is the skyline per direction:
+	// [azimuth, altitude] points in degrees, sorted by azimuth, as a
+	// site's horizon list.
+	Skyline [][2]float64
 }
 
 // String returns the canonical query string, the cache key.
@@ -98,6 +102,9 @@ func (q AdhocQuery) place() string {
 	}
 	if q.Horizon != 0 {
 		b.WriteString("&" + ParamHorizon + "=" + strconv.FormatFloat(q.Horizon, 'f', -1, 64))
+	}
+	if len(q.Skyline) > 0 {
+		b.WriteString("&" + ParamHorizon + "=" + url.QueryEscape(q.skylineText()))
 	}
 	if q.Alarm != 0 {
 		b.WriteString("&" + ParamAlarm + "=" + config.ShortDuration(q.Alarm))

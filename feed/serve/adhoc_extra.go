@@ -1,10 +1,13 @@
 package serve
 
 import (
+	"errors"
 	"fmt"
 	"maps"
 	"math"
+	"regexp"
 	"slices"
+	"strconv"
 	"strings"
 	"time"
 	"unicode"
@@ -13,8 +16,13 @@ import (
 	"heliocal/config"
 )
 
-// Bounds of the place name of an ad-hoc query.
-const maxNameRunes = 80
+// Bounds of the place name and the skyline of an ad-hoc query.
+const (
+	maxNameRunes       = 80
+	maxSkylinePoints   = 72 // one every 5°
+	skylineDecimals    = 10 // azimuths and altitudes are rounded to 0.1°
+	skylineParamFormat = "azimuth:altitude points in degrees, comma-separated, azimuth from the north through the east, e.g. 0:2,90:8,180:1,270:4"
+)
 
 // parseExtras reads name, horizon, alarm and lighting.
 func (q *AdhocQuery) parseExtras(get getter, lim *adhocLimits) error {
@@ -31,15 +39,21 @@ func (q *AdhocQuery) parseExtras(get getter, lim *adhocLimits) error {
 		q.Name = name
 	}
 	if v, ok := get(ParamHorizon); ok {
-		h, err := parseFloat(ParamHorizon, v)
-		if err != nil {
-			return err
+		if strings.Contains(v, ":") {
+			if err := q.parseSkyline(v); err != nil {
+				return err
+			}
+		} else {
+			h, err := parseFloat(ParamHorizon, v)
+			if err != nil {
+				return err
+			}
+			if h < config.MinHorizon || h > config.MaxHorizon {
+				return &QueryError{Param: ParamHorizon, Value: v,
+					Msg: fmt.Sprintf("must be within %g..%g degrees (the skyline's altitude; 0 for a flat horizon)", config.MinHorizon, config.MaxHorizon)}
+			}
+			q.Horizon = math.Round(h*10)/10 + 0
 		}
-		if h < config.MinHorizon || h > config.MaxHorizon {
-			return &QueryError{Param: ParamHorizon, Value: v,
-				Msg: fmt.Sprintf("must be within %g..%g degrees (the skyline's altitude; 0 for a flat horizon)", config.MinHorizon, config.MaxHorizon)}
-		}
-		q.Horizon = math.Round(h*10)/10 + 0
 	}
 	if v, ok := get(ParamAlarm); ok {
 		d, err := time.ParseDuration(strings.TrimSpace(v))
@@ -119,6 +133,60 @@ func (q AdhocQuery) offsetList() string {
 	items := make([]string, 0, len(q.Offsets))
 	for _, k := range slices.Sorted(maps.Keys(q.Offsets)) {
 		items = append(items, k+":"+config.ShortDuration(q.Offsets[k]))
+	}
+	return strings.Join(items, ",")
+}
+
+// pointIndex is a skyline point's place in a configuration's message.
+var pointIndex = regexp.MustCompile(ParamHorizon + `\[\d+\]`)
+
+// parseSkyline reads horizon as a skyline: azimuth:altitude points (as the
+// events command's --horizon takes them, but never a file name), at most
+// maxSkylinePoints, each rounded to 0.1°, checked as a site's horizon list
+// is (azimuth 0..360, altitude within config.MinHorizon..MaxHorizon, one
+// altitude per direction).
+func (q *AdhocQuery) parseSkyline(v string) error {
+	if n := strings.Count(v, ",") + 1; n > maxSkylinePoints {
+		return &QueryError{Param: ParamHorizon, Value: v, Msg: fmt.Sprintf("%d skyline points, at most %d (one every 5°)", n, maxSkylinePoints)}
+	}
+	items := strings.Split(v, ",")
+	for i, item := range items { // rounded before the checks: two points may become one direction
+		a, b, ok := strings.Cut(item, ":")
+		az, err1 := strconv.ParseFloat(strings.TrimSpace(a), 64)
+		alt, err2 := strconv.ParseFloat(strings.TrimSpace(b), 64)
+		if ok && err1 == nil && err2 == nil {
+			items[i] = strconv.FormatFloat(math.Round(az*skylineDecimals)/skylineDecimals+0, 'f', -1, 64) + ":" +
+				strconv.FormatFloat(math.Round(alt*skylineDecimals)/skylineDecimals+0, 'f', -1, 64)
+		}
+	}
+	pts, err := config.SkylineFromText(ParamHorizon, strings.Join(items, ","))
+	if err != nil {
+		msg := err.Error()
+		var fe config.FieldError
+		if errors.As(err, &fe) {
+			msg = fe.Msg
+			if i := strings.IndexByte(fe.Path, '['); i >= 0 {
+				if j, err := strconv.Atoi(strings.Trim(fe.Path[i:], "[]")); err == nil {
+					msg = fmt.Sprintf("point %d (%s): %s", j+1, strings.TrimSpace(strings.Split(v, ",")[j]), fe.Msg)
+				}
+			}
+		}
+		msg = pointIndex.ReplaceAllStringFunc(msg, func(m string) string { // horizon[0] is point 1
+			j, _ := strconv.Atoi(m[len(ParamHorizon)+1 : len(m)-1])
+			return "point " + strconv.Itoa(j+1)
+		})
+		return &QueryError{Param: ParamHorizon, Value: v, Msg: msg + " (" + skylineParamFormat + ")"}
+	}
+	q.Skyline = pts
+	return nil
+}
+
+// skylineText writes Skyline in its canonical form, azimuth:altitude points
+// sorted by azimuth.
+func (q AdhocQuery) skylineText() string {
+	items := make([]string, len(q.Skyline))
+	for i, p := range q.Skyline {
+		items[i] = strconv.FormatFloat(p[0], 'f', -1, 64) + ":" + strconv.FormatFloat(p[1], 'f', -1, 64)
 	}
 	return strings.Join(items, ",")
 }

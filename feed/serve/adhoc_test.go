@@ -11,6 +11,7 @@ import (
 	"net/http/httptest"
 	"regexp"
 	"runtime"
+	"strconv"
 	"strings"
 	"sync"
 	"sync/atomic"
@@ -54,6 +55,14 @@ func TestAdhocBadParameters(t *testing.T) {
 		{ok + "&horizon=46", "horizon", `"46"`},
 		{ok + "&horizon=-6", "horizon", `"-6"`},
 		{ok + "&horizon=hill", "horizon", `"hill"`},
+		{ok + "&horizon=0:2,90:x", "horizon", `"0:2,90:x"`},
+		{ok + "&horizon=0:2,90:60", "horizon", `"0:2,90:60": point 2 (90:60): altitude must be within -5..45 degrees (`},
+		{ok + "&horizon=0:2,361:4", "horizon", `point 2 (361:4): azimuth must be within 0..360`},
+		{ok + "&horizon=0:2,360:4", "horizon", `azimuth 0 given twice (also point 1`},
+		{ok + "&horizon=10.01:2,10.04:3", "horizon", `given twice`},
+		{ok + "&horizon=0:2,,90:8", "horizon", `point 2 ()`},
+		{ok + "&horizon=0:2/90:8", "horizon", `point 1 (0:2/90:8): must be azimuth:altitude`},
+		{ok + "&horizon=" + skylinePoints(73), "horizon", "73 skyline points, at most 72"},
 		{ok + "&alarm=15", "alarm", `"15"`},
 		{ok + "&alarm=-5m", "alarm", `"-5m"`},
 		{ok + "&alarm=169h", "alarm", `"169h"`},
@@ -607,4 +616,13 @@ func TestAdhocIdentityFromGzip(t *testing.T) {
 	if got := body(t, r); r.StatusCode != http.StatusPartialContent || got != string(built[:15]) {
 		t.Errorf("range 0-14: status %d, body %q, want 206 %q", r.StatusCode, got, built[:15])
 	}
+}
+
+// skylinePoints writes n skyline points, evenly spread round the horizon.
+func skylinePoints(n int) string {
+	items := make([]string, n)
+	for i := range items {
+		items[i] = strconv.FormatFloat(float64(i)*360/float64(n), 'f', 2, 64) + ":3"
+	}
+	return strings.Join(items, ",")
 }

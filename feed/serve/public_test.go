@@ -5,6 +5,8 @@ import (
 	"encoding/json"
 	"net/http"
 	"net/http/httptest"
+	"net/url"
+	"slices"
 	"strings"
 	"testing"
 	"time"
@@ -103,5 +105,49 @@ func TestAdhocExtras(t *testing.T) {
 		if !strings.Contains(got.String(), part) {
 			t.Errorf("canonical query %q lacks %q", got.String(), part)
 		}
+	}
+}
+
+// horizon takes a skyline too, as azimuth:altitude points: checked, in
+// its canonical form (sorted by azimuth, rounded to 0.1°, 360 written 0)
+// in the cache key and the feed's id, so that two spellings of one skyline
+// share a feed, and a skyline is never confused with a flat horizon.
+func TestAdhocSkyline(t *testing.T) {
+	lim := &adhocLimits{parseKind: parseKind, maxDays: 400, defaultDays: 365, minYear: 1900, maxYear: 2100, zones: &zoneCache{}}
+	ask := func(horizon string) AdhocQuery {
+		t.Helper()
+		q, err := parseAdhoc("lat=47.05&lon=11.2&tz=Europe/Vienna&kinds=sunrise&horizon="+url.QueryEscape(horizon), today, lim)
+		if err != nil {
+			t.Fatalf("horizon=%s: %v", horizon, err)
+		}
+		return q
+	}
+	a := ask("360:3, 100:12.04,180:25,270:15")
+	want := [][2]float64{{0, 3}, {100, 12}, {180, 25}, {270, 15}}
+	if !slices.Equal(a.Skyline, want) || a.Horizon != 0 {
+		t.Fatalf("skyline %v horizon %v, want %v", a.Skyline, a.Horizon, want)
+	}
+	if !strings.Contains(a.String(), "horizon="+url.QueryEscape("0:3,100:12,180:25,270:15")) {
+		t.Errorf("canonical query %q lacks the skyline", a.String())
+	}
+	b := ask("270:15.0,0:3,180:25,100:12")
+	if a.String() != b.String() || a.ID() != b.ID() {
+		t.Errorf("two spellings of one skyline: %q (%s) and %q (%s)", a.String(), a.ID(), b.String(), b.ID())
+	}
+	flat, one := ask("3"), ask("0:3")
+	if flat.ID() == one.ID() || len(flat.Skyline) != 0 || flat.Horizon != 3 || len(one.Skyline) != 1 {
+		t.Errorf("a horizon of 3° and a skyline of one point at 3° share id %s", flat.ID())
+	}
+	if a.ID() == ask("0:3,100:12,180:25,270:14.9").ID() {
+		t.Errorf("two skylines share id %s", a.ID())
+	}
+	// the canonical form reads back as the same query
+	if again := ask(a.skylineText()); again.String() != a.String() {
+		t.Errorf("canonical skyline %q reads back as %q", a.String(), again.String())
+	}
+	// and the server serves it
+	s := adhocServer(t, adhocICS)
+	if r := get(t, s.Handler(), "GET", "/at.ics?"+a.String()); r.StatusCode != 200 {
+		t.Errorf("GET the canonical query: %d %s", r.StatusCode, body(t, r))
 	}
 }

@@ -44,7 +44,8 @@ function query(withStart) {
   if (kinds.length) p.set("kinds", kinds.join(","));
   const num = (id) => $(id).value.trim();
   if (num("elev") !== "" && num("elev") !== "0") p.set("elev", num("elev"));
-  if (num("horizon") !== "" && num("horizon") !== "0") p.set("horizon", num("horizon"));
+  const horizon = num("horizon").replace(/\s+/g, "");
+  if (horizon !== "" && horizon !== "0") p.set("horizon", horizon);
   if ($("name").value.trim() !== "") p.set("name", $("name").value.trim());
   if ($("tz").value.trim() !== "") p.set("tz", $("tz").value.trim());
   if (num("alarm") !== "" && num("alarm") !== "0") p.set("alarm", num("alarm") + "m");

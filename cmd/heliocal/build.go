@@ -67,7 +67,7 @@ func build(cfg *config.Config, now time.Time, l layout) ([]publish.Source, publi
 	srcs := make([]publish.Source, len(cfg.Feeds))
 	for i := range cfg.Feeds {
 		f := &cfg.Feeds[i]
-		srcs[i] = publish.Source{ID: f.ID, Build: func(ctx context.Context) (*feed.Calendar, error) { return cat.Calendar(ctx, f) }}
+		srcs[i] = publish.Source{ID: f.ID, Build: func(ctx context.Context) (*feed.Calendar, error) { return cat.Calendar(ctx, f) }, Release: true}
 	}
 	opts := publish.RenderOptions{
 		Version:      versionString(),

@@ -89,7 +89,7 @@ func BenchmarkPublishFleet(b *testing.B) {
 				srcs := make([]Source, len(cfg.Feeds))
 				for i := range cfg.Feeds {
 					f := &cfg.Feeds[i]
-					srcs[i] = Source{ID: f.ID, Build: func(ctx context.Context) (*feed.Calendar, error) { return cat.Calendar(ctx, f) }}
+					srcs[i] = Source{ID: f.ID, Build: func(ctx context.Context) (*feed.Calendar, error) { return cat.Calendar(ctx, f) }, Release: true}
 				}
 				opts := RenderOptions{BaseURL: demoBase, Generated: now.Truncate(24 * time.Hour), MaxFeedBytes: -1}
 				st, err = Publish(context.Background(), srcs, opts, &Writer{Dir: b.TempDir()})

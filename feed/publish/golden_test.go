@@ -52,7 +52,7 @@ func demoRun(t testing.TB, now time.Time, keep map[string]bool, back, ahead int)
 	srcs := make([]Source, len(cfg.Feeds))
 	for i := range cfg.Feeds {
 		f := &cfg.Feeds[i]
-		srcs[i] = Source{ID: f.ID, Build: func(ctx context.Context) (*feed.Calendar, error) { return cat.Calendar(ctx, f) }}
+		srcs[i] = Source{ID: f.ID, Build: func(ctx context.Context) (*feed.Calendar, error) { return cat.Calendar(ctx, f) }, Release: true}
 		if keep != nil { // small runs: keep the calendars to compare with
 			c, err := cat.Calendar(context.Background(), f)
 			if err != nil {

@@ -45,6 +45,11 @@ const DefaultMaxCharts = 100
 type Source struct {
 	ID    string
 	Build func(ctx context.Context) (*feed.Calendar, error)
+	// Release says that the calendar Build returns is made for this call
+	// alone (as feed.Catalogue's are): once it is encoded its entries are
+	// handed back (feed.Calendar.Release) and the next feed's reuse their
+	// memory, instead of a run allocating every feed's entries afresh.
+	Release bool
 }
 
 // Calendars wraps calendars that are already built as sources.
@@ -207,6 +212,10 @@ func renderOne(ctx context.Context, s Source, enc encodeFunc, base *url.URL, dst
 		return rendered{}, fmt.Errorf("publish: feed %s: calendar has id %q", s.ID, cal.ID)
 	}
 	data, err := enc(dst[:0], cal)
+	events := len(cal.Entries)
+	if s.Release {
+		cal.Release()
+	}
 	if err != nil {
 		return rendered{data: data}, fmt.Errorf("publish: feed %s: %w", s.ID, err)
 	}
@@ -219,7 +228,7 @@ func renderOne(ctx context.Context, s Source, enc encodeFunc, base *url.URL, dst
 	return rendered{
 		info: FeedInfo{
 			ID: s.ID, Title: cal.Title, Site: cal.Site.ID, File: name, URL: u,
-			Events: len(cal.Entries), Bytes: len(data), Checksum: sum,
+			Events: events, Bytes: len(data), Checksum: sum,
 		},
 		trimmedTo: cal.TrimmedTo,
 		site:      cal.Site,

@@ -2,6 +2,7 @@ package ical
 
 import (
 	"bytes"
+	"fmt"
 	"math/rand"
 	"testing"
 
@@ -54,4 +55,23 @@ func BenchmarkEncoderAppend(b *testing.B) {
 		}
 	}
 	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*len(c.Entries)), "ns/event")
+}
+
+// TestUIDSet: the duplicate check's set against a map, over calendars of
+// different sizes one after another (sized too small, so that it grows),
+// with repeats among the UIDs.
+func TestUIDSet(t *testing.T) {
+	var u uidSet
+	r := rand.New(rand.NewSource(3))
+	for _, n := range []int{0, 1, 5, 40, 2400, 7, 3000} {
+		u.reset(n / 3)
+		want := map[string]bool{}
+		for range n {
+			uid := fmt.Sprintf("%x@heliocal", r.Intn(2*n+1))
+			if got := u.add(uid); got != !want[uid] {
+				t.Fatalf("n=%d: add(%q) = %v after %d UIDs", n, uid, got, len(want))
+			}
+			want[uid] = true
+		}
+	}
 }

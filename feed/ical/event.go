@@ -4,6 +4,7 @@ import (
 	"io"
 	"math/bits"
 	"time"
+	"unicode"
 	"unicode/utf8"
 
 	ics "github.com/arran4/golang-ical"
@@ -34,7 +35,7 @@ type vevent struct {
 	w          *writer
 	uid        string
 	title      string       // cleaned SUMMARY, "" for none
-	desc       string       // cleaned DESCRIPTION, "" for none
+	desc       string       // DESCRIPTION as given (cleaned as it is written), "" for none
 	cats       *contentLine // the CATEGORIES line, nil for none
 	start, end time.Time    // UTC, whole seconds; all-day: the dates at 00:00
 	allDay     bool
@@ -149,7 +150,7 @@ func (ev *vevent) appendTo(b []byte) []byte {
 		b = w.textLine(b, "SUMMARY:", ev.title)
 	}
 	if ev.desc != "" {
-		b = w.textLine(b, "DESCRIPTION:", ev.desc)
+		b = w.cleanTextLine(b, "DESCRIPTION:", ev.desc)
 	}
 	b = append(b, w.lines.tail...)
 	for i, v := range values {
@@ -208,6 +209,22 @@ func (w *writer) textLine(b []byte, prefix, value string) []byte {
 	return w.endLine(b, start)
 }
 
+// cleanTextLine is textLine for a value not yet cleaned: it is cleaned
+// (cleanText) as it is escaped, in one pass, and the line is left out, as
+// textLine's caller leaves it out, when nothing is left of the value.
+func (w *writer) cleanTextLine(b []byte, prefix, value string) []byte {
+	start := len(b)
+	b, ok := escapeCleanText(append(b, prefix...), value)
+	if !ok {
+		value = normaliseText(value)
+		if value == "" {
+			return b[:start]
+		}
+		b = escapeText(b[:start+len(prefix)], value)
+	}
+	return w.endValidLine(b, start)
+}
+
 // endLine ends the unfolded content line b[start:] as the library's
 // BaseProperty.SerializeTo does: folded by libraryFold when it is longer
 // than cfg.MaxLength, then the newline.
@@ -217,6 +234,16 @@ func (w *writer) endLine(b []byte, start int) []byte {
 	}
 	w.scratch = append(w.scratch[:0], b[start:]...)
 	return libraryFold(b[:start], w.scratch, w.cfg.MaxLength, w.cfg.NewLine)
+}
+
+// endValidLine is endLine for a line known to be valid UTF-8 (a cleaned
+// text), which need not be checked again before it is folded.
+func (w *writer) endValidLine(b []byte, start int) []byte {
+	if len(b)-start <= w.cfg.MaxLength {
+		return append(b, w.cfg.NewLine...)
+	}
+	w.scratch = append(w.scratch[:0], b[start:]...)
+	return foldCuts(b[:start], w.scratch, w.cfg.MaxLength, w.cfg.NewLine, validCut)
 }
 
 // endRawLine ends the unfolded pre-formatted line b[start:] as
@@ -240,6 +267,57 @@ func escapeText(b []byte, s string) []byte {
 	}
 	return append(b, s[from:]...)
 }
+
+// escapeCleanText is escapeText(b, cleanText(s)) for a text cleanText
+// leaves as it is, checked as it is escaped; it reports false, with part
+// of s appended, for any other text (invalid UTF-8, or a control character
+// other than HTAB and LF), which the caller normalises first. Octets are
+// tested 8 at a time, for escaping and cleaning at once (escapeMask and
+// cleanMask), going straight to the first one that needs a look.
+func escapeCleanText(b []byte, s string) ([]byte, bool) {
+	from, i := 0, 0
+	for {
+		for i+8 <= len(s) {
+			x := load64(s, i)
+			if m := escapeMask(x) | cleanMask(x); m != 0 {
+				i += bits.TrailingZeros64(m) / 8
+				break
+			}
+			i += 8
+		}
+		for i < len(s) && cleanAscii[s[i]] {
+			i++
+		}
+		if i >= len(s) {
+			return append(b, s[from:]...), true
+		}
+		switch c := s[i]; {
+		case textEscapes[c] != 0:
+			b = append(append(b, s[from:i]...), '\\', textEscapes[c])
+			i++
+			from = i
+		case c == '\t':
+			i++
+		case c < utf8.RuneSelf: // another control character
+			return b, false
+		default:
+			r, size := utf8.DecodeRuneInString(s[i:])
+			if (r == utf8.RuneError && size == 1) || unicode.IsControl(r) {
+				return b, false
+			}
+			i += size
+		}
+	}
+}
+
+// cleanAscii holds the octets escapeCleanText copies without a look:
+// printable ASCII other than backslash, semicolon and comma.
+var cleanAscii = func() (t [256]bool) {
+	for c := ' '; c < 0x7f; c++ {
+		t[c] = textEscapes[c] == 0
+	}
+	return t
+}()
 
 // nextEscape returns the index of the first octet of s at or after i that
 // escapeText escapes, or len(s) if there is none. It tests 8 octets at a
@@ -270,11 +348,17 @@ var textEscapes = [256]byte{'\\': '\\', ';': ';', ',': ',', '\n': 'n'}
 // and at most max-1 octets, each cut where libraryCut says, every physical
 // line ending with newline.
 func libraryFold(b, s []byte, max int, newline string) []byte {
+	cut := libraryCut
+	if len(s) > max && utf8.Valid(s) {
+		cut = validCut // the same cuts, faster
+	}
+	return foldCuts(b, s, max, newline, cut)
+}
+
+// foldCuts is libraryFold with the cuts of cut, libraryCut or, for valid
+// UTF-8, validCut.
+func foldCuts(b, s []byte, max int, newline string, cut func(int, []byte) int) []byte {
 	if len(s) > max {
-		cut := libraryCut
-		if utf8.Valid(s) {
-			cut = validCut // the same cuts, faster
-		}
 		n := cut(max, s)
 		b = append(append(b, s[:n]...), newline...)
 		s = s[n:]

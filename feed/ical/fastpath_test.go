@@ -1,6 +1,7 @@
 package ical
 
 import (
+	"bytes"
 	"math/bits"
 	"math/rand"
 	"strings"
@@ -73,6 +74,30 @@ func TestCleanTextFastPath(t *testing.T) {
 		}
 		if got, want := cleanText(s), normaliseText(s); got != want {
 			t.Fatalf("cleanText(%q) = %q, want %q", s, got, want)
+		}
+	}
+}
+
+// TestEscapeCleanText: cleaning while escaping gives escapeText of the
+// cleaned text, or reports that the text needs normalising first exactly
+// when cleanText would change it; texts built from clean and unclean
+// pieces, long enough for the 8-octet path.
+func TestEscapeCleanText(t *testing.T) {
+	pieces := []string{"a", "Z", " ", ",", ";", "\\", "\t", "\n", "\r", "\r\n", "\x00", "\x1f", "\x7f", "é", "°", "−",
+		"\u0085", "\u009f", "\u00a0", "\u2028", "日", "🌅", "\uFFFD", "\xff", "\xc3", "\xe6\x97", "\xed\xa0\x80",
+		"Sunrise at 06:42:40 CET", "(standard refraction)."}
+	r := rand.New(rand.NewSource(7))
+	for range 50000 {
+		var s string
+		for j := r.Intn(24); j > 0; j-- {
+			s += pieces[r.Intn(len(pieces))]
+		}
+		got, ok := escapeCleanText([]byte("DESCRIPTION:"), s)
+		if clean := cleanText(s); ok != (clean == s) {
+			t.Fatalf("escapeCleanText(%q) reports %v; cleanText gives %q", s, ok, clean)
+		}
+		if want := escapeText([]byte("DESCRIPTION:"), s); ok && !bytes.Equal(got, want) {
+			t.Fatalf("escapeCleanText(%q) = %q, want %q", s, got, want)
 		}
 	}
 }

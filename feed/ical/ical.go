@@ -53,12 +53,14 @@ package ical
 import (
 	"encoding/binary"
 	"fmt"
+	"hash/maphash"
 	"io"
 	"math"
 	"slices"
 	"strconv"
 	"strings"
 	"time"
+	"unsafe"
 
 	ics "github.com/arran4/golang-ical"
 
@@ -110,7 +112,7 @@ func Marshal(c *feed.Calendar, opts Options) ([]byte, error) {
 type Encoder struct {
 	opts  Options
 	w     writer
-	seen  map[string]struct{}
+	seen  uidSet
 	comps []ics.Component
 	// spanEntries, when not nil, stand for the calendar's entries in
 	// sizing the VTIMEZONE (see NewStream).
@@ -199,6 +201,10 @@ type writer struct {
 	// feed has a handful: one per kind); catKey is the scratch lookup key.
 	cats   map[string]*contentLine
 	catKey []byte
+	// catRecent remembers the lines of the calendar's last few lists by
+	// their backing array: a catalogue's entries of one kind share one
+	// list, which is then found without building its key.
+	catRecent []catMemo
 
 	span offsetSpan // the last offset period looked up (see offsetAt)
 
@@ -225,7 +231,8 @@ type writer struct {
 // previous one: the event array, the categories cache (a line depends on
 // the categories alone) and the scratch buffers.
 func (w *writer) reset(c *feed.Calendar) {
-	*w = writer{c: c, stamp: c.Stamp.UTC(), cats: w.cats, catKey: w.catKey[:0],
+	clear(w.catRecent)
+	*w = writer{c: c, stamp: c.Stamp.UTC(), cats: w.cats, catKey: w.catKey[:0], catRecent: w.catRecent[:0],
 		events: w.events[:0], out: w.out[:0], scratch: w.scratch[:0]}
 }
 
@@ -371,11 +378,66 @@ func (e *Encoder) build(c *feed.Calendar) (*ics.Calendar, int, error) {
 
 // newUIDs empties the set of UIDs seen, for a calendar (or a streamed
 // chunk) of n entries.
-func (e *Encoder) newUIDs(n int) {
-	if e.seen == nil {
-		e.seen = make(map[string]struct{}, n)
+func (e *Encoder) newUIDs(n int) { e.seen.reset(n) }
+
+// uidSet is a set of UIDs for the duplicate check: an open-addressing
+// table (linear probing, at most half full) of indices into the UIDs
+// added, cheaper per entry than a map, and kept from one calendar to the
+// next.
+type uidSet struct {
+	seed  maphash.Seed
+	slots []int32 // 1 + the UID's index in uids; 0 for an empty slot
+	uids  []string
+}
+
+// reset empties the set, ready for about n UIDs.
+func (u *uidSet) reset(n int) {
+	if u.slots == nil {
+		u.seed = maphash.MakeSeed()
 	}
-	clear(e.seen)
+	clear(u.uids) // keep nothing of the previous calendar alive
+	u.uids = u.uids[:0]
+	size := 16
+	for size < 2*n {
+		size <<= 1
+	}
+	if cap(u.slots) >= size {
+		u.slots = u.slots[:size]
+		clear(u.slots)
+	} else {
+		u.slots = make([]int32, size)
+	}
+}
+
+// add adds uid to the set and reports whether it was not there yet.
+func (u *uidSet) add(uid string) bool {
+	if 2*(len(u.uids)+1) > len(u.slots) {
+		u.grow()
+	}
+	mask := uint64(len(u.slots) - 1)
+	for i := maphash.String(u.seed, uid) & mask; ; i = (i + 1) & mask {
+		switch k := u.slots[i]; {
+		case k == 0:
+			u.uids = append(u.uids, uid)
+			u.slots[i] = int32(len(u.uids))
+			return true
+		case u.uids[k-1] == uid:
+			return false
+		}
+	}
+}
+
+// grow doubles the table and adds the UIDs again.
+func (u *uidSet) grow() {
+	u.slots = make([]int32, 2*max(len(u.slots), 8))
+	mask := uint64(len(u.slots) - 1)
+	for k, uid := range u.uids {
+		i := maphash.String(u.seed, uid) & mask
+		for u.slots[i] != 0 {
+			i = (i + 1) & mask
+		}
+		u.slots[i] = int32(k + 1)
+	}
 }
 
 // entry checks entry number n, whose UID must not have been seen, and sets up
@@ -384,10 +446,9 @@ func (e *Encoder) entry(i, n int, en *feed.Entry) (*vevent, error) {
 	if en.UID == "" {
 		return nil, fmt.Errorf("entry %d (%s %s): empty UID", n, en.Kind, en.Start.Format(time.RFC3339))
 	}
-	if _, dup := e.seen[en.UID]; dup {
+	if !e.seen.add(en.UID) {
 		return nil, fmt.Errorf("entry %d: duplicate UID %q", n, en.UID)
 	}
-	e.seen[en.UID] = struct{}{}
 	ev, err := e.w.event(i, en)
 	if err != nil {
 		return nil, fmt.Errorf("entry %q: %w", en.UID, err)
@@ -513,7 +574,9 @@ func (w *writer) event(i int, e *feed.Entry) (*vevent, error) {
 		ev.start, ev.end = start, end
 	}
 	ev.title = cleanText(e.Title)
-	ev.desc = cleanText(e.Description)
+	// The description, the longest text, is cleaned as it is escaped (see
+	// cleanTextLine): one pass over it instead of two.
+	ev.desc = e.Description
 	ev.cats = w.categoriesLine(e.Categories)
 	alarm := entryAlarm(w.c, e)
 	ev.alarm = alarm > 0 && !e.AllDay
@@ -539,6 +602,35 @@ func entryAlarm(c *feed.Calendar, e *feed.Entry) time.Duration {
 // must stay as they are, commas inside a value are escaped. The library would
 // escape the separators too, so the line is written pre-formatted.
 func (w *writer) categoriesLine(cats []string) *contentLine {
+	// The same array and length within one calendar is the same list: the
+	// entries are not changed while they are encoded.
+	data := unsafe.SliceData(cats)
+	for _, m := range w.catRecent {
+		if m.data == data && m.n == len(cats) {
+			return m.line
+		}
+	}
+	line := w.categoriesLineByValue(cats)
+	if data != nil && len(w.catRecent) < maxCatRecent {
+		w.catRecent = append(w.catRecent, catMemo{data, len(cats), line})
+	}
+	return line
+}
+
+// catMemo is a list of categories known by its array and length, and its
+// line (see writer.catRecent).
+type catMemo struct {
+	data *string
+	n    int
+	line *contentLine
+}
+
+// maxCatRecent bounds writer.catRecent: a feed's kinds have a handful of
+// lists.
+const maxCatRecent = 16
+
+// categoriesLineByValue is categoriesLine looked up by the values.
+func (w *writer) categoriesLineByValue(cats []string) *contentLine {
 	// The key holds each value prefixed with its length, so that two
 	// different lists never share a key; the map lookup with string(key)
 	// does not allocate.

@@ -87,6 +87,10 @@ func (s *Stream) Write(entries []feed.Entry) error {
 	}
 	w.events = w.events[:len(entries)]
 	e.newUIDs(len(entries))
+	// A caller may reuse the memory of one batch's lists of categories
+	// for the next one's: lists are known by their arrays within a batch.
+	clear(w.catRecent)
+	w.catRecent = w.catRecent[:0]
 	buf := s.buf[:0]
 	for i := range entries {
 		en := &entries[i]

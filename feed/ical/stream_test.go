@@ -100,3 +100,32 @@ func TestStreamRefuses(t *testing.T) {
 		t.Error("a closed stream took more entries")
 	}
 }
+
+// TestStreamReusedCategories: a caller that writes each batch's categories
+// into the same list (one array) gets each batch's own CATEGORIES line.
+func TestStreamReusedCategories(t *testing.T) {
+	c := siteYear(t, "Europe/Vienna")
+	c.Entries = c.Entries[:2]
+	cats := []string{"Sun", "Sunrise"}
+	var out bytes.Buffer
+	s, err := NewStream(&out, c, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i, name := range []string{"Sunrise", "Sunset"} {
+		cats[1] = name
+		e := c.Entries[i]
+		e.Categories = cats
+		if err := s.Write([]feed.Entry{e}); err != nil {
+			t.Fatal(err)
+		}
+	}
+	if err := s.Close(); err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{"CATEGORIES:Sun,Sunrise\r\n", "CATEGORIES:Sun,Sunset\r\n"} {
+		if !strings.Contains(out.String(), want) {
+			t.Errorf("no %q in the stream", want)
+		}
+	}
+}

@@ -60,6 +60,29 @@ func TestAppendStamp(t *testing.T) {
 	}
 }
 
+// TestAppendSeconds: formatting from Unix seconds with the date's digits
+// kept from one value to the next gives appendStamp's bytes, for instants
+// in order and at random (before 1970 and outside four-digit years too).
+func TestAppendSeconds(t *testing.T) {
+	var w writer
+	r := rand.New(rand.NewSource(5))
+	at := []time.Time{utc(1969, 12, 31, 23, 59, 59), utc(1970, 1, 1, 0, 0, 0), utc(10000, 1, 1, 0, 0, 0),
+		utc(9999, 12, 31, 23, 59, 59), utc(-1, 6, 1, 12, 0, 0), utc(2026, 3, 29, 1, 0, 0)}
+	for u := utc(2026, 1, 1, 0, 0, 0); len(at) < 3000; u = u.Add(time.Duration(r.Intn(20000)) * time.Second) {
+		at = append(at, u)
+	}
+	for range 3000 {
+		at = append(at, time.Unix(r.Int63n(1<<37)-1<<36, 0))
+	}
+	for _, t0 := range at {
+		for _, z := range []bool{true, false} {
+			if got, want := string(w.appendSeconds(nil, t0.Unix(), z)), string(appendStamp(nil, t0, z)); got != want {
+				t.Fatalf("%s: %q, want %q", t0, got, want)
+			}
+		}
+	}
+}
+
 // TestCleanTextFastPath: the clean-text check returns what the full
 // normalisation returns, for texts built from clean and unclean pieces
 // (controls C0 and C1, CR, invalid and truncated UTF-8, U+FFFD itself).

@@ -207,6 +207,7 @@ type writer struct {
 	catRecent []catMemo
 
 	span offsetSpan // the last offset period looked up (see offsetAt)
+	day  dayDigits  // the last date written (see appendSeconds)
 
 	// zoneFrom and zoneTo are the span the VTIMEZONE covers (UTC; zero
 	// without one).
@@ -658,15 +659,50 @@ func (w *writer) categoriesLineByValue(cats []string) *contentLine {
 // with a TZID. A wall clock that occurs twice is written in UTC (see
 // isAmbiguous).
 func (w *writer) appendTime(b []byte, t time.Time) ([]byte, bool) {
+	u := t.Unix()
 	if w.loc == nil {
-		return appendStamp(b, t, true), false
+		return w.appendSeconds(b, u, true), false
 	}
 	off, ambiguous := w.offsetAt(t)
 	if ambiguous {
-		return appendStamp(b, t, true), false
+		return w.appendSeconds(b, u, true), false
 	}
 	// The wall clock of t in w.loc is t shifted by the offset, read in UTC.
-	return appendStamp(b, t.Add(time.Duration(off)*time.Second), false), true
+	return w.appendSeconds(b, u+off, false), true
+}
+
+// appendSeconds is appendStamp for the instant u Unix seconds (read in
+// UTC). Its date's digits are kept (w.day) for the next value, which is
+// nearly always on the same date (an event's end, the next event).
+func (w *writer) appendSeconds(b []byte, u int64, utc bool) []byte {
+	day := u / 86400
+	if u%86400 < 0 {
+		day--
+	}
+	if !w.day.set || w.day.n != day {
+		t := time.Unix(day*86400, 0).UTC()
+		y, mo, d := t.Date()
+		if y < 0 || y > 9999 {
+			return appendStamp(b, time.Unix(u, 0), utc)
+		}
+		w.day = dayDigits{n: day, set: true, digits: [8]byte{byte('0' + y/1000), byte('0' + y/100%10), byte('0' + y/10%10),
+			byte('0' + y%10), byte('0' + mo/10), byte('0' + mo%10), byte('0' + d/10), byte('0' + d%10)}}
+	}
+	s := u - day*86400
+	h, mi, sec := s/3600, s/60%60, s%60
+	b = append(append(b, w.day.digits[:]...), 'T',
+		byte('0'+h/10), byte('0'+h%10), byte('0'+mi/10), byte('0'+mi%10), byte('0'+sec/10), byte('0'+sec%10))
+	if utc {
+		b = append(b, 'Z')
+	}
+	return b
+}
+
+// dayDigits are the digits "20060102" of day n (days since 1970-01-01).
+type dayDigits struct {
+	n      int64
+	set    bool
+	digits [8]byte
 }
 
 // appendStamp appends t (read in UTC) as "20060102T150405", with a trailing

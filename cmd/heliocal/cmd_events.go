@@ -213,8 +213,12 @@ func parseDate(flag, v string) (time.Time, error) {
 	return d, nil
 }
 
+// parseKinds reads --kinds. A kind given twice, itself or within a group
+// ("seasons", "moon-phases"), is refused as a feed's kinds are: its events
+// would be listed twice.
 func parseKinds(list string) ([]config.Kind, error) {
 	var kinds []config.Kind
+	seen := map[config.Kind]config.Kind{} // a member: the kind that gave it
 	for _, name := range strings.Split(list, ",") {
 		name = strings.TrimSpace(name)
 		if name == "" {
@@ -223,6 +227,19 @@ func parseKinds(list string) ([]config.Kind, error) {
 		k, err := config.ParseKind(name)
 		if err != nil {
 			return nil, badInput("--kinds: %w", err)
+		}
+		for _, m := range k.Members() {
+			if m.IsZero() {
+				continue
+			}
+			if prev, dup := seen[m]; dup {
+				also := ""
+				if prev != k {
+					also = fmt.Sprintf(" (also in %q)", prev.String())
+				}
+				return nil, badInput("--kinds: %q: %q listed twice%s: give each kind once", list, m.String(), also)
+			}
+			seen[m] = k
 		}
 		kinds = append(kinds, k)
 	}

@@ -188,6 +188,8 @@ func TestEventsBadInput(t *testing.T) {
 		{"longitude", []string{"events", "--lat", "0", "--lon", "-200"}, "--lon: -200"},
 		{"zone", []string{"events", "--lat", "0", "--lon", "0", "--tz", "Mars/Olympus"}, "Mars/Olympus"},
 		{"kind", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "sunrize"}, "sunrize"},
+		{"kind twice", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "sunrise,sunset,sunrise"}, `--kinds: "sunrise,sunset,sunrise": "sunrise" listed twice`},
+		{"kind twice in a group", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "seasons,june-solstice"}, `"june-solstice" listed twice (also in "seasons")`},
 		{"date", []string{"events", "--lat", "0", "--lon", "0", "--from", "2027-13-01"}, "--from: \"2027-13-01\""},
 		{"order", []string{"events", "--lat", "0", "--lon", "0", "--from", "2027-02-01", "--to", "2027-01-01"}, "--to"},
 		{"range", []string{"events", "--lat", "0", "--lon", "0", "--from", "1700-01-01", "--to", "1700-01-02"}, "1700"},

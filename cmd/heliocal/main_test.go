@@ -196,6 +196,8 @@ func TestEventsBadInput(t *testing.T) {
 		{"format", []string{"events", "--lat", "0", "--lon", "0", "--format", "xml"}, "--format: \"xml\""},
 		{"site", []string{"events", "--site", "nowhere"}, "nowhere"},
 		{"flag", []string{"events", "--latitude", "1"}, "latitude"},
+		{"not a number", []string{"events", "--lat", "4O.5", "--lon", "0"}, `heliocal: --lat: "4O.5": not a number` + "\n"},
+		{"not a duration", []string{"publish", "--lock-wait", "5", "--out", "unused"}, `heliocal: --lock-wait: "5": not a duration`},
 		{"shard count", []string{"publish", "--shard", "0/10001", "--out", "unused"}, `--shard "0/10001": count must be at most 10000`},
 		{"config", []string{"check", "--config", filepath.Join("..", "..", "testdata", "config", "bad-latitude.yaml")}, "latitude"},
 		{"missing config", []string{"check", "--config", "nope.yaml"}, "heliocal: --config nope.yaml: no such file\n"},

@@ -10,6 +10,7 @@ import (
 	"strings"
 
 	"github.com/spf13/cobra"
+	"github.com/spf13/pflag"
 
 	"heliocal/astro"
 	"heliocal/config"
@@ -122,7 +123,7 @@ Configuration: --config FILE, else ./heliocal.yaml, else the built-in demo.` + e
 	root.SetVersionTemplate("{{.Version}}\n")
 	installHelp(root, g)
 	root.PersistentFlags().StringVarP(&g.configPath, "config", "c", "", "configuration file (YAML, TOML or JSON); - reads it from standard input")
-	root.SetFlagErrorFunc(func(_ *cobra.Command, err error) error { return inputError{err} })
+	root.SetFlagErrorFunc(func(_ *cobra.Command, err error) error { return inputError{flagValueError(err)} })
 	root.CompletionOptions.DisableDefaultCmd = true
 	root.AddCommand(
 		newCompletionCommand(g),
@@ -187,4 +188,26 @@ func newCompletionCommand(g *globals) *cobra.Command {
 			return root.GenPowerShellCompletionWithDesc(g.stdout)
 		},
 	}
+}
+
+// flagValueError words a flag's value that does not parse as the flag and
+// the value with what is wrong ("--lat: \"abc\": not a number"), not as the
+// parser's own message; other flag errors are kept.
+func flagValueError(err error) error {
+	var iv *pflag.InvalidValueError
+	if !errors.As(err, &iv) {
+		return err
+	}
+	what := "not a valid value"
+	switch iv.GetFlag().Value.Type() {
+	case "float64", "float32":
+		what = "not a number"
+	case "int", "int64", "int32", "uint", "uint64":
+		what = "not a whole number"
+	case "bool":
+		what = "not true or false"
+	case "duration":
+		what = `not a duration (a number with a unit, e.g. "30s", "2m")`
+	}
+	return fmt.Errorf("--%s: %q: %s", iv.GetFlag().Name, iv.GetValue(), what)
 }

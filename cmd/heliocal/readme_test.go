@@ -6,6 +6,8 @@ import (
 	"strings"
 	"testing"
 	"time"
+
+	"heliocal/config"
 )
 
 // The JSON example of the README's tour is the output of the command it
@@ -60,6 +62,58 @@ func TestReadmeEventsExample(t *testing.T) {
 			if g != w {
 				t.Errorf("event %d %s: printed %v, README %v", i, k, g, w)
 			}
+		}
+	}
+}
+
+// The README's day across midnight is heliocal's output at the place it
+// names: at 78.2° N, 15.6° E on 17 April 2027 the Sun rises at 02:14 and
+// sets at 00:03 on the 18th, a day of 21 h 48 min, 43 min 30 s longer than
+// the day before.
+func TestReadmeDayAcrossMidnight(t *testing.T) {
+	readme, err := os.ReadFile("../../README.md")
+	if err != nil {
+		t.Fatal(err)
+	}
+	text := strings.Join(strings.Fields(string(readme)), " ")
+	const claim = "at 78.2° N, 15.6° E (sea level, Arctic/Longyearbyen) on 17 April 2027 the Sun rises at 02:14 and sets at 00:03 the next date, a day of 21 h 48 min (+43 min 30 s from the day before)"
+	if !strings.Contains(text, claim) {
+		t.Fatalf("README does not say %q", claim)
+	}
+	code, out, errOut := runCLI(t, "events", "--lat", "78.2", "--lon", "15.6", "--tz", "Arctic/Longyearbyen",
+		"--from", "2027-04-17", "--to", "2027-04-18", "--kinds", "sunrise,sunset,daily-summary")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	for _, w := range []string{
+		"day length 21 h 48 min 11 s, change +43 min 30 s", // the summary of 17 April
+		"2027-04-17 Sat  02:14:21 CEST",
+		"2027-04-18 Sun  00:02:32 CEST",
+	} {
+		if !strings.Contains(out, w) {
+			t.Errorf("output lacks %q:\n%s", w, out)
+		}
+	}
+}
+
+// The README's list of the built-in demo names every site of the demo.
+func TestReadmeDemoSites(t *testing.T) {
+	readme, err := os.ReadFile("../../README.md")
+	if err != nil {
+		t.Fatal(err)
+	}
+	text := string(readme)
+	start := strings.Index(text, "### The built-in demo")
+	if start < 0 {
+		t.Fatal("README has no section on the built-in demo")
+	}
+	section := text[start:]
+	if end := strings.Index(section[1:], "\n#"); end > 0 {
+		section = section[:end+1]
+	}
+	for _, s := range config.Demo().Sites {
+		if !strings.Contains(section, "**"+s.Name+"**") {
+			t.Errorf("README's built-in demo does not list site %s (%s)", s.ID, s.Name)
 		}
 	}
 }

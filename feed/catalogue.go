@@ -189,14 +189,14 @@ func (sky *Sky) Entries(ctx context.Context, s *config.Site, feedID string, spec
 func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []config.KindSpec, room int) ([]Entry, error) {
 	last := col.last
 	days := int(col.last.Sub(col.first).Hours()/24) + 1
-	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: make(map[string]int, days*len(specs)), noted: map[string]bool{}, last: civil(last)}
+	w := entryWriter{feedID: feedID, site: newSiteInfo(s), noted: map[string]bool{}, last: civil(last)}
 	w.out = releasedEntries.get(days*(len(specs)+1) + room)
 	w.text = textBuffers.get(days * textPerEntry)
 	defer func() { textBuffers.put(w.text) }()
 	if err := col.prepare(altitudes(col.p.Observer, specs)...); err != nil {
 		return nil, err
 	}
-	for _, spec := range specs {
+	for si, spec := range specs {
 		w.alarm = alarmOf(spec.Alarm)
 		from := len(w.out)
 		if spec.Kind.Name == "daily-summary" {
@@ -215,8 +215,10 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 		if spec.Kind.Name == config.KindLighting {
 			w.text = slices.Grow(w.text, (len(col.events)-n0)*lampText)
 		}
-		for _, e := range col.events[n0:] {
-			w.event(spec, e)
+		evs := col.events[n0:]
+		w.begin(&spec, evs, specs, si)
+		for i := range evs {
+			w.event(&spec, &evs[i])
 		}
 		for _, n := range col.notes[m0:] {
 			w.note(n)
@@ -500,6 +502,9 @@ type entryWriter struct {
 	alarm *time.Duration // the alarm of the kinds entry or plan being written, nil for the feed's
 	lamp  *lightingText  // the text of the lighting kind last written
 	names map[config.Kind]string
+	cur   specState // the kinds entry being written
+	// scratch holds a description while an offset's line goes before it
+	scratch []byte
 
 	// text holds the descriptions and UIDs of the events written since
 	// the last flushText, and spans where each is: flushText makes them
@@ -558,6 +563,9 @@ func (w *entryWriter) uid(parts ...string) string {
 // SHA-256 of key and the number of entries with the same key before it, in
 // hex, and "@heliocal". key may be w.buf, which it reuses.
 func (w *entryWriter) appendUID(dst, key []byte) []byte {
+	if w.seen == nil {
+		w.seen = map[string]int{}
+	}
 	n, ok := w.seen[string(key)]
 	if ok {
 		w.seen[string(key)] = n + 1
@@ -565,8 +573,14 @@ func (w *entryWriter) appendUID(dst, key []byte) []byte {
 		w.seen[w.keep(key)] = 1
 	}
 	key = strconv.AppendInt(append(key, '|'), int64(n), 10)
-	sum := sha256.Sum256(key)
 	w.buf = key
+	return appendHash(dst, key)
+}
+
+// appendHash appends the UID of a key with its count: the first 12 bytes
+// of its SHA-256 in hex, and "@heliocal".
+func appendHash(dst, key []byte) []byte {
+	sum := sha256.Sum256(key)
 	return append(hex.AppendEncode(dst, sum[:12]), "@heliocal"...)
 }
 
@@ -616,11 +630,89 @@ func (w *entryWriter) categories(k config.Kind) []string {
 	return c
 }
 
-// event writes the entry of an event of spec. Its description and UID go
-// to text (see flushText).
-func (w *entryWriter) event(spec config.KindSpec, e Event) {
+// countedKinds are the kinds whose events have the kind of their kinds
+// entry: when no other kinds entry of the feed has the same kind and
+// offset, their UID keys are told apart by date, part and direction only,
+// and begin counts them date by date instead of in seen.
+var countedKinds = map[string]bool{
+	"sunrise": true, "sunset": true, "civil-dawn": true, "civil-dusk": true, "nautical-dawn": true,
+	"nautical-dusk": true, "astronomical-dawn": true, "astronomical-dusk": true, "solar-noon": true,
+	"golden-hour": true, "blue-hour": true, config.KindSunBand: true, config.KindSunAltitude: true,
+	config.KindPhotoperiod: true, config.KindLighting: true,
+}
+
+// specState is what the entries of the kinds entry being written share.
+type specState struct {
+	kind   string   // the kind as written, of every event
+	cats   []string // their CATEGORIES
+	prefix []byte   // the start of their UID keys: "<feed>|<kind>|<offset>|"
+	// counted: the UID keys are counted per date here (day, onDate)
+	// instead of in seen: the events come date after date, and no other
+	// entry of the feed can have the same key (countedKinds).
+	counted bool
+	day     int64
+	onDate  []dateCount
+}
+
+// dateCount counts the entries of one date with one part and direction.
+type dateCount struct {
+	part string
+	dir  astro.Direction
+	n    int
+}
+
+// offsetText is an offset as UID keys write it.
+func offsetText(offset time.Duration) string {
+	if offset == 0 {
+		return "0s"
+	}
+	return offset.String()
+}
+
+// begin prepares the writing of the events evs of spec, specs[si].
+func (w *entryWriter) begin(spec *config.KindSpec, evs []Event, specs []config.KindSpec, si int) {
+	st := &w.cur
+	st.kind, st.cats, st.counted, st.day, st.onDate = w.kindName(spec.Kind), w.categories(spec.Kind), false, 0, st.onDate[:0]
+	off := offsetText(time.Duration(spec.Offset))
+	st.prefix = append(append(append(append(append(st.prefix[:0], w.feedID...), '|'), st.kind...), '|'), off...)
+	st.prefix = append(st.prefix, '|')
+	if !countedKinds[spec.Kind.Name] {
+		return
+	}
+	for i := range specs {
+		if o := &specs[i]; i != si && countedKinds[o.Kind.Name] && o.Kind == spec.Kind && o.Offset == spec.Offset {
+			return // the same keys twice: counted in seen
+		}
+	}
+	for i := range evs {
+		if evs[i].Kind != spec.Kind || i > 0 && evs[i].Date.Before(evs[i-1].Date) {
+			return
+		}
+	}
+	st.counted = true
+}
+
+// occurrence returns how many entries of the kinds entry being written
+// came before on the local date day with the same part and direction.
+func (st *specState) occurrence(day int64, part string, dir astro.Direction) int {
+	if day != st.day || len(st.onDate) == 0 {
+		st.day, st.onDate = day, st.onDate[:0]
+	}
+	for i := range st.onDate {
+		if c := &st.onDate[i]; c.part == part && c.dir == dir {
+			c.n++
+			return c.n - 1
+		}
+	}
+	st.onDate = append(st.onDate, dateCount{part, dir, 1})
+	return 0
+}
+
+// event writes the entry of an event of spec, the kinds entry begin
+// prepared. Its description and UID go to text (see flushText).
+func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 	offset := time.Duration(spec.Offset)
-	loc := w.site.TimeZone.Location
+	z := w.site.zone
 	var title string
 	var lamp []byte // a lamp period's title, written to text when kept as it is
 	from := len(w.text)
@@ -631,54 +723,64 @@ func (w *entryWriter) event(spec config.KindSpec, e Event) {
 			title, lamp = string(lamp), nil
 		}
 	} else {
-		w.text, title = appendDescription(w.text, w.site, e)
+		w.text, title = appendDescription(w.text, w.site, *e)
 	}
 	if offset != 0 {
 		// "<title>: <clock>.\n" before the event's own description
 		title = offsetTitle(offset, title)
-		desc := string(w.text[from:])
-		w.text = appendClock(append(append(w.text[:from], title...), ": "...), e.Start.Add(offset), loc)
-		w.text = append(append(w.text, ".\n"...), desc...)
+		w.scratch = append(w.scratch[:0], w.text[from:]...)
+		w.text = z.appendClock(append(append(w.text[:from], title...), ": "...), e.Start.Add(offset))
+		w.text = append(append(w.text, ".\n"...), w.scratch...)
 	}
 	if spec.Label != "" {
 		title = spec.Label
 	}
-	kind := w.kindName(e.Kind)
-	en := Entry{
-		Kind:       kind,
-		Title:      title,
-		Categories: w.categories(e.Kind),
-		Start:      e.Start.Add(offset),
-		Date:       e.Date,
+	st := &w.cur
+	kind := st.kind
+	if e.Kind != spec.Kind {
+		kind = w.kindName(e.Kind)
+	}
+	w.out = append(w.out, Entry{})
+	en := &w.out[len(w.out)-1]
+	en.Kind, en.Title, en.Start, en.Date, en.Alarm = kind, title, e.Start.Add(offset), e.Date, w.alarm
+	if e.Kind.Name == spec.Kind.Name {
+		en.Categories = st.cats
+	} else {
+		en.Categories = w.categories(e.Kind)
 	}
 	if !e.End.IsZero() {
 		en.End = e.End.Add(offset)
 	}
-	en.Alarm = w.alarm
 	en.Facts = Facts{Part: e.Part, Direction: e.Direction, Altitude: e.Altitude, Azimuth: e.Azimuth, Distance: e.Distance,
 		Illuminated: e.Illuminated, DayLength: e.DayLength, DirectSun: e.DirectSun, Lamp: e.Lamp, Short: e.Short}
 	if spec.AllDay || e.Kind.Name == "photoperiod" {
-		d := localDate(en.Start, loc)
+		d := z.date(en.Start)
 		en.AllDay, en.Start, en.End, en.Date = true, d, d.AddDate(0, 0, 1), d
 	}
-	// the UID of the parts kind, offset, date, part and direction
-	key := append(append(w.buf[:0], w.feedID...), '|')
-	key = append(append(key, kind...), '|')
-	if offset == 0 {
-		key = append(key, "0s"...)
-	} else {
-		key = append(key, offset.String()...)
-	}
-	key = append(appendDate(append(key, '|'), e.Date), '|')
-	key = append(append(append(key, e.Part...), '|'), dirString(e.Direction)...)
-	sp := textSpan{entry: len(w.out), from: from, to: len(w.text), uid: len(w.text)}
+	sp := textSpan{entry: len(w.out) - 1, from: from, to: len(w.text), uid: len(w.text)}
 	if lamp != nil {
 		w.text = append(w.text, lamp...)
 		sp.title, sp.uid = sp.to, len(w.text)
 	}
-	w.text = w.appendUID(w.text, key)
+	// the UID of the parts kind, offset, date, part and direction
+	var key []byte
+	if kind == st.kind {
+		key = append(w.buf[:0], st.prefix...)
+	} else {
+		key = append(append(append(append(w.buf[:0], w.feedID...), '|'), kind...), '|')
+		key = append(append(key, offsetText(offset)...), '|')
+	}
+	key = append(appendDate(key, e.Date), '|')
+	key = append(append(append(key, e.Part...), '|'), dirString(e.Direction)...)
+	if st.counted {
+		n := st.occurrence(e.Date.Unix()/secondsPerDay, e.Part, e.Direction)
+		key = strconv.AppendInt(append(key, '|'), int64(n), 10)
+		w.buf = key
+		w.text = appendHash(w.text, key)
+	} else {
+		w.text = w.appendUID(w.text, key)
+	}
 	w.spans = append(w.spans, sp)
-	w.out = append(w.out, en)
 }
 
 func (w *entryWriter) note(n Note) {

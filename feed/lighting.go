@@ -387,15 +387,16 @@ type shownClock struct {
 	zone    string // at the second
 }
 
-func shownAt(t time.Time, loc *time.Location) shownClock {
+func shownAt(t time.Time, z *zoneCache) shownClock {
 	ts, tm := ToSecond(t), ToMinute(t)
-	zone, off := ts.In(loc).Zone()
-	sec := daySeconds(ts.Unix() + int64(off))
+	us := ts.Unix()
+	zone, off := z.at(us)
+	sec := daySeconds(us + off)
 	offM := off
 	if tm != ts {
-		_, offM = tm.In(loc).Zone() // a clock change may lie between the two
+		_, offM = z.at(tm.Unix()) // a clock change may lie between the two
 	}
-	mins := daySeconds(tm.Unix()+int64(offM)) / 60
+	mins := daySeconds(tm.Unix()+offM) / 60
 	return shownClock{h: sec / 3600, m: sec / 60 % 60, s: sec % 60, hm: mins / 60, mm: mins % 60, zone: zone}
 }
 
@@ -452,7 +453,7 @@ type lightingKey struct {
 }
 
 // lightingText returns the text of a lighting kind, built once per feed.
-func (w *entryWriter) lightingText(spec config.KindSpec) *lightingText {
+func (w *entryWriter) lightingText(spec *config.KindSpec) *lightingText {
 	key := lightingKey{spec.Kind.DayLength, spec.MinDuration.D(), spec.Natural, spec.EarliestOn, spec.LatestOff}
 	if w.lamp != nil && w.lamp.key == key {
 		return w.lamp
@@ -468,7 +469,7 @@ func (w *entryWriter) lightingText(spec config.KindSpec) *lightingText {
 		lt.closing = "Civil twilight is counted as natural light (common practice: twilight still drives photoperiod responses).\n"
 	}
 	lt.closing += "Computed for planning from the site's coordinates; follow the lighting programme of the crop or herd."
-	lt.limits = limitsOf(spec).text
+	lt.limits = limitsOf(*spec).text
 	lt.clipped = "Clipped (" + lt.limits + "): the target of " + target + " is not reached today.\n"
 	lt.minimum = amount(spec.MinDuration.D())
 	w.lamp = lt
@@ -477,12 +478,11 @@ func (w *entryWriter) lightingText(spec config.KindSpec) *lightingText {
 
 // appendDescription appends the description of a lamp period to dst and
 // its title to title.
-func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e Event) ([]byte, []byte) {
-	loc := s.TimeZone.Location
-	on, off := shownAt(e.Start, loc), shownAt(e.End, loc)
+func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Event) ([]byte, []byte) {
+	on, off := shownAt(e.Start, s.zone), shownAt(e.End, s.zone)
 	t := on.appendMinute(append(title, "Lamps on "...))
 	t = off.appendMinute(append(t, "–"...))
-	if localDay(e.End.Add(-time.Nanosecond), loc) != e.Date.Unix()/secondsPerDay {
+	if s.zone.day(e.End.Add(-time.Nanosecond)) != e.Date.Unix()/secondsPerDay {
 		t = append(t, " (+1 day)"...)
 	}
 	t = appendHM(append(t, " ("...), e.Lamp) // as the natural day below

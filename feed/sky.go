@@ -5,7 +5,6 @@ import (
 	"context"
 	"fmt"
 	"slices"
-	"sort"
 	"strconv"
 	"sync"
 	"time"
@@ -913,21 +912,24 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 		high bool
 		dir  astro.Direction
 	}
+	// the crossings of both bounds in time order: each list is in order
 	marks := make([]mark, 0, len(lo)+len(hi))
-	for _, x := range lo {
-		marks = append(marks, mark{x.Time, false, x.Direction})
+	for i, j := 0, 0; i < len(lo) || j < len(hi); {
+		if j == len(hi) || i < len(lo) && !hi[j].Time.Before(lo[i].Time) {
+			marks = append(marks, mark{lo[i].Time, false, lo[i].Direction})
+			i++
+		} else {
+			marks = append(marks, mark{hi[j].Time, true, hi[j].Direction})
+			j++
+		}
 	}
-	for _, x := range hi {
-		marks = append(marks, mark{x.Time, true, x.Direction})
-	}
-	sort.Slice(marks, func(i, j int) bool { return marks[i].t.Before(marks[j].t) })
 
 	in := c.thresholds[low].upFirst && !c.thresholds[high].upFirst
 	c.events = slices.Grow(c.events, len(lo)/2)
 	n0 := len(c.events) // this kind's spans start here
 	var start time.Time
 	var entered mark
-	seen := map[time.Time]bool{}
+	seen := make([]bool, c.last.Sub(c.first)/(24*time.Hour)+1) // by date from first: a span starts on it
 	for _, m := range marks {
 		entering := (!m.high && m.dir == astro.Rising) || (m.high && m.dir == astro.Setting)
 		if entering && !in {
@@ -951,13 +953,13 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 			d := localDate(start, c.p.Location)
 			if c.inRange(d) {
 				c.events = append(c.events, Event{Kind: k, Start: start, End: m.t, Date: d, Part: part, Low: low, High: high})
-				seen[d] = true
+				seen[d.Sub(c.first)/(24*time.Hour)] = true
 			}
 			start = time.Time{}
 		}
 	}
-	for d := c.first; !d.After(c.last); d = d.AddDate(0, 0, 1) {
-		if seen[d] {
+	for i, d := 0, c.first; !d.After(c.last); i, d = i+1, d.Add(24*time.Hour) { // UTC dates: a day is 24 h
+		if seen[i] {
 			continue
 		}
 		// No span starts on this date: either one runs through it from the

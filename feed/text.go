@@ -43,6 +43,89 @@ func appendClock(b []byte, t time.Time, loc *time.Location) []byte {
 	return append(b, zone...)
 }
 
+// zoneCache answers a zone's offset and abbreviation at an instant from
+// the last period of the zone it looked up (the instants from..to-1, Unix
+// seconds, in which the zone keeps one offset and name), so that the
+// entries of a feed, written in time order kind after kind, look the zone
+// up about twice a year instead of several times per entry. It is not safe
+// for concurrent use.
+type zoneCache struct {
+	loc      *time.Location
+	from, to int64 // from inclusive, to exclusive; from > to before the first look-up
+	off      int64 // seconds east of UTC
+	name     string
+}
+
+func newZoneCache(loc *time.Location) *zoneCache {
+	return &zoneCache{loc: loc, from: 1, to: 0}
+}
+
+// at returns the zone's abbreviation and offset (seconds east of UTC) at
+// the Unix second u.
+func (z *zoneCache) at(u int64) (string, int64) {
+	if u >= z.from && u < z.to {
+		return z.name, z.off
+	}
+	lt := time.Unix(u, 0).In(z.loc)
+	name, off := lt.Zone()
+	from, to := lt.ZoneBounds()
+	z.name, z.off, z.from, z.to = name, int64(off), math.MinInt64, math.MaxInt64
+	if !from.IsZero() {
+		z.from = from.Unix()
+	}
+	if !to.IsZero() {
+		z.to = to.Unix()
+	}
+	return z.name, z.off
+}
+
+// day is the number of days since 1970-01-01 of the local date of t.
+func (z *zoneCache) day(t time.Time) int64 {
+	u := t.Unix()
+	_, off := z.at(u)
+	return floorDiv(u+off, secondsPerDay)
+}
+
+// date is the local date of t at 00:00 UTC, as localDate gives it.
+func (z *zoneCache) date(t time.Time) time.Time {
+	return time.Unix(z.day(t)*secondsPerDay, 0).UTC()
+}
+
+// appendClock appends localClock(t, z.loc) to b.
+func (z *zoneCache) appendClock(b []byte, t time.Time) []byte {
+	u := ToSecond(t).Unix()
+	name, off := z.at(u)
+	s := daySeconds(u + off)
+	h, m, sec := s/3600, s/60%60, s%60
+	b = append(b, byte('0'+h/10), byte('0'+h%10), ':', byte('0'+m/10), byte('0'+m%10), ':', byte('0'+sec/10), byte('0'+sec%10), ' ')
+	return append(b, name...)
+}
+
+// appendDayMark appends DayMark(t, d, z.loc) to b.
+func (z *zoneCache) appendDayMark(b []byte, t, d time.Time) []byte {
+	n := z.day(ToSecond(t)) - floorDiv(d.Unix(), secondsPerDay)
+	switch {
+	case n == 0:
+		return b
+	case n == 1:
+		return append(b, " +1 day"...)
+	case n > 1:
+		return append(strconv.AppendInt(append(b, " +"...), n, 10), " days"...)
+	case n == -1:
+		return append(b, " −1 day"...)
+	}
+	return append(strconv.AppendInt(append(b, " −"...), -n, 10), " days"...)
+}
+
+// floorDiv is a/b rounded towards minus infinity (b > 0).
+func floorDiv(a, b int64) int64 {
+	q := a / b
+	if a%b < 0 {
+		q--
+	}
+	return q
+}
+
 // appendDate appends the date of t as time.DateOnly writes it.
 func appendDate(b []byte, t time.Time) []byte {
 	y, m, d := t.Date()
@@ -188,10 +271,13 @@ type siteInfo struct {
 	*config.Site
 	where      string // "Name (48.200° N, 16.400° E)"
 	refraction string // "standard refraction" or "refraction for 1030 hPa and −20 °C"
+	zone       *zoneCache
+	band       *bandText // the band kind last written
 }
 
+// newSiteInfo returns the siteInfo of s, for one goroutine (its zone cache).
 func newSiteInfo(s *config.Site) *siteInfo {
-	return &siteInfo{Site: s, where: where(s), refraction: refractionText(PlaceOf(s).Observer)}
+	return &siteInfo{Site: s, where: where(s), refraction: refractionText(PlaceOf(s).Observer), zone: newZoneCache(s.TimeZone.Location)}
 }
 
 // refractionText names the refraction rise and set are computed with.
@@ -342,26 +428,6 @@ func describe(s *siteInfo, e Event) (string, string) {
 		} else {
 			b.WriteString(", its highest of the day.\n" + cautionEyes)
 		}
-	case "golden-hour", "blue-hour", config.KindSunBand:
-		lo, hi := signedDegrees(e.Low), signedDegrees(e.High)
-		light := map[string]string{
-			"golden-hour": "low, warm sunlight and long shadows, for photography and events",
-			"blue-hour":   "no direct sunlight; an even, deep blue sky, for photography with the lights on",
-		}[e.Kind.Name]
-		part := partName(e.Part)
-		if e.Kind.Name == config.KindSunBand {
-			title = "Sun between " + lo + " and " + hi
-			light = "a band of the Sun's altitude chosen for this feed"
-			if e.Part == "all-day" { // one span through noon: a high band's usual day, not a low Sun
-				part = "through midday"
-			}
-		}
-		title = title + " (" + part + ")"
-		b.WriteString(title + " from " + at + DayMark(e.Start, e.Date, loc) + " to " + localClock(e.End, loc) + DayMark(e.End, e.Date, loc) + " (" + hm(ToSecond(e.End).Sub(ToSecond(e.Start))) +
-			").\nThe Sun's centre is between " + between(e.Low, e.High) + ": " + light + ".")
-		if e.High > -1 {
-			b.WriteString("\n" + cautionEyes) // the Sun may be in view
-		}
 	case "sun-altitude":
 		verb := DirectionWord(e) + " through"
 		title = fmt.Sprintf("Sun %s %s", verb, degrees(e.Kind.Altitude))
@@ -437,7 +503,7 @@ func appendDaily(b []byte, s *siteInfo, e Event) (_ []byte, title string, ok boo
 				verb = "first appears over the site's skyline"
 			}
 		}
-		b = appendClock(append(append(b, title...), " at "...), e.Start, s.TimeZone.Location)
+		b = s.zone.appendClock(append(append(b, title...), " at "...), e.Start)
 		b = append(append(append(b, ": the Sun's upper limb "...), verb...), " at "...)
 		b = append(append(append(append(appendAzimuth(b, e), " ("...), refr...), more...), ").\n"...)
 		if e.DirectSun {
@@ -451,14 +517,71 @@ func appendDaily(b []byte, s *siteInfo, e Event) (_ []byte, title string, ok boo
 		return append(appendChange(b, e.DayChange), " from the day before)."...), title, true
 	case "civil-dawn", "civil-dusk", "nautical-dawn", "nautical-dusk", "astronomical-dawn", "astronomical-dusk":
 		title = plainNames[e.Kind.Name]
-		b = appendClock(append(append(b, title...), " at "...), e.Start, s.TimeZone.Location)
+		b = s.zone.appendClock(append(append(b, title...), " at "...), e.Start)
 		b = append(append(b, ".\n"...), twilightMeaning[e.Kind.Name]...)
 		if strings.HasPrefix(e.Kind.Name, "civil") {
 			b = append(append(b, '\n'), cautionLegal...)
 		}
 		return b, title, true
+	case "golden-hour", "blue-hour", config.KindSunBand:
+		bt := s.bandText(e)
+		title = bt.title(e.Part)
+		z := s.zone
+		b = z.appendDayMark(z.appendClock(append(append(b, title...), " from "...), e.Start), e.Start, e.Date)
+		b = z.appendDayMark(z.appendClock(append(b, " to "...), e.End), e.End, e.Date)
+		b = append(appendHM(append(b, " ("...), ToSecond(e.End).Sub(ToSecond(e.Start))), ").\n"...)
+		return append(b, bt.light...), title, true
 	}
 	return b, "", false
+}
+
+// bandText is the text of a band kind's spans (golden hour, blue hour, a
+// sun-band) that is the same on every date, written once per feed.
+type bandText struct {
+	name      string
+	low, high float64
+	base      string // "Golden hour", "Sun between +2° and +12°"
+	light     string // "The Sun's centre is between …: …." and the caution
+	parts     []string
+	titles    []string // by part: "Golden hour (morning)"
+}
+
+// bandText returns the text of e's band, built once per feed.
+func (s *siteInfo) bandText(e Event) *bandText {
+	if bt := s.band; bt != nil && bt.name == e.Kind.Name && bt.low == e.Low && bt.high == e.High {
+		return bt
+	}
+	bt := &bandText{name: e.Kind.Name, low: e.Low, high: e.High, base: plainNames[e.Kind.Name]}
+	light := map[string]string{
+		"golden-hour": "low, warm sunlight and long shadows, for photography and events",
+		"blue-hour":   "no direct sunlight; an even, deep blue sky, for photography with the lights on",
+	}[e.Kind.Name]
+	if e.Kind.Name == config.KindSunBand {
+		bt.base = "Sun between " + signedDegrees(e.Low) + " and " + signedDegrees(e.High)
+		light = "a band of the Sun's altitude chosen for this feed"
+	}
+	bt.light = "The Sun's centre is between " + between(e.Low, e.High) + ": " + light + "."
+	if e.High > -1 {
+		bt.light += "\n" + cautionEyes // the Sun may be in view
+	}
+	s.band = bt
+	return bt
+}
+
+// title is the title of the band's span of part p.
+func (bt *bandText) title(p string) string {
+	for i, q := range bt.parts {
+		if q == p {
+			return bt.titles[i]
+		}
+	}
+	part := partName(p)
+	if bt.name == config.KindSunBand && p == "all-day" { // one span through noon: a high band's usual day, not a low Sun
+		part = "through midday"
+	}
+	t := bt.base + " (" + part + ")"
+	bt.parts, bt.titles = append(bt.parts, p), append(bt.titles, t)
+	return t
 }
 
 // Uncertain returns how uncertain the instant t is because the Earth's
@@ -520,7 +643,11 @@ func azimuthText(e Event) string { return string(appendAzimuth(nil, e)) }
 
 // appendAzimuth appends azimuthText(e) to b.
 func appendAzimuth(b []byte, e Event) []byte {
-	b = strconv.AppendFloat(b, math.Round(e.Azimuth)-360*math.Floor(math.Round(e.Azimuth)/360), 'f', 0, 64)
+	if az := math.Round(e.Azimuth) - 360*math.Floor(math.Round(e.Azimuth)/360); az >= 0 && az < 360 {
+		b = strconv.AppendInt(b, int64(az), 10) // a whole number of degrees, as 'f' with no decimals writes it
+	} else {
+		b = strconv.AppendFloat(b, az, 'f', 0, 64)
+	}
 	return append(append(b, "°, "...), astro.CompassPoint(e.Azimuth)...)
 }
 

@@ -1,0 +1,92 @@
+package feed
+
+import (
+	"context"
+	"crypto/sha256"
+	"encoding/hex"
+	"strconv"
+	"strings"
+	"testing"
+	"time"
+
+	"heliocal/config"
+)
+
+// wantUID is an event entry's UID as the catalogue promises to derive it:
+// the first 12 bytes of the SHA-256 of "<feed>|<kind>|<offset>|<local
+// date>|<part>|<direction>|<n>" in hex, n counting the entries with the same
+// key before it, and "@heliocal". Calendar clients update an entry in place
+// only while its UID stays the same, so the derivation never changes.
+func wantUID(feed, kind, offset string, date time.Time, part, dir string, n int) string {
+	key := feed + "|" + kind + "|" + offset + "|" + date.Format(time.DateOnly) + "|" + part + "|" + dir + "|" + strconv.Itoa(n)
+	sum := sha256.Sum256([]byte(key))
+	return hex.EncodeToString(sum[:12]) + "@heliocal"
+}
+
+// TestEventUIDs: every event entry has the UID of its key, however the
+// writer counts repeats: a kind listed once (counted date by date), the same
+// kind and offset given twice (the configuration refuses it, the API does
+// not: the second gets n = 1), an offset, a lamp period, and the dates at
+// 78° N with two sunsets or two golden hours of one part (n = 1 for the
+// second).
+func TestEventUIDs(t *testing.T) {
+	s := site(t, "polar", 78.2, 15.6, "Arctic/Longyearbyen")
+	first, last := date("2027-01-01"), date("2027-12-31")
+	sk := sky(t, "2027-01-01", "2027-12-31")
+	var specs []config.KindSpec
+	for _, n := range []string{"sunrise", "sunset", "golden-hour", "civil-dusk", "lighting:16h", "sunrise"} {
+		k, err := config.ParseKind(n)
+		if err != nil {
+			t.Fatal(err)
+		}
+		specs = append(specs, config.KindSpec{Kind: k})
+	}
+	specs = append(specs, config.KindSpec{Kind: specs[0].Kind, Offset: config.Duration(-30 * time.Minute)})
+	es, err := sk.Entries(context.Background(), s, "f", specs, first, last)
+	if err != nil {
+		t.Fatal(err)
+	}
+	type key struct {
+		kind, offset, part, dir string
+		date                    time.Time
+	}
+	seen := map[key]int{}
+	// the entries in the order written: by kinds entry, date after date
+	// (the second sunrise entry of a date counted after the first's)
+	var repeats, doubled, offsets int
+	for _, e := range es {
+		if e.Facts.Note {
+			continue
+		}
+		offset := "0s"
+		if strings.HasPrefix(e.Title, "30 min before") {
+			offset = "-30m0s"
+			offsets++
+		}
+		k := key{e.Kind, offset, e.Facts.Part, dirString(e.Facts.Direction), e.Date}
+		seen[k]++
+		if seen[k] == 2 {
+			repeats++
+		}
+		if e.Kind == "sunrise" && offset == "0s" && seen[k] == 2 {
+			doubled++
+		}
+	}
+	if repeats == 0 || doubled == 0 || offsets == 0 {
+		t.Fatalf("repeats %d, doubled kinds %d, offsets %d: the test does not reach every case", repeats, doubled, offsets)
+	}
+	// every key's UIDs are those of n = 0 .. count-1, each once
+	uids := map[string]bool{}
+	for _, e := range es {
+		if !e.Facts.Note {
+			uids[e.UID] = true
+		}
+	}
+	for k, c := range seen {
+		for n := range c {
+			if u := wantUID("f", k.kind, k.offset, k.date, k.part, k.dir, n); !uids[u] {
+				t.Errorf("%v: no entry has UID %s (n = %d of %d)", k, u, n, c)
+			}
+		}
+	}
+}

@@ -289,15 +289,7 @@ func refractionText(o astro.Observer) string {
 }
 
 func where(s *config.Site) string {
-	ns, ew := "N", "E"
-	lat, lon := s.Latitude, s.Longitude
-	if lat < 0 {
-		ns, lat = "S", -lat
-	}
-	if lon < 0 {
-		ew, lon = "W", -lon
-	}
-	return fmt.Sprintf("%s (%.3f° %s, %.3f° %s)", s.Name, lat, ns, lon, ew)
+	return s.Name + " (" + Coords(s.Latitude, s.Longitude, 3) + ")"
 }
 
 var plainNames = map[string]string{

@@ -428,15 +428,7 @@ type tableSink struct {
 
 func newTableSink(w *bufio.Writer, s *config.Site) *tableSink {
 	loc := s.TimeZone.Location
-	ns, ew := 'N', 'E'
-	lat, lon := s.Latitude, s.Longitude
-	if lat < 0 {
-		ns, lat = 'S', -lat
-	}
-	if lon < 0 {
-		ew, lon = 'W', -lon
-	}
-	fmt.Fprintf(w, "%s: %.4f° %c, %.4f° %c, %g m, %s\n\n", s.Name, lat, ns, lon, ew, s.Elevation, loc)
+	fmt.Fprintf(w, "%s: %s, %g m, %s\n\n", s.Name, feed.Coords(s.Latitude, s.Longitude, 4), s.Elevation, loc)
 	return &tableSink{w: w, loc: loc}
 }
 

@@ -2,9 +2,9 @@ package main
 
 import (
 	"fmt"
-	"math"
 
 	"heliocal/config"
+	"heliocal/feed"
 	"heliocal/feed/publish"
 	"heliocal/feed/serve"
 )
@@ -48,12 +48,5 @@ func pageText(cfg *config.Config) *publish.PageText {
 
 // placeWords writes where a site is: "47.81° N, 13.06° E, 430 m, Europe/Vienna".
 func placeWords(s config.Site) string {
-	ns, ew := "N", "E"
-	if s.Latitude < 0 {
-		ns = "S"
-	}
-	if s.Longitude < 0 {
-		ew = "W"
-	}
-	return fmt.Sprintf("%.2f° %s, %.2f° %s, %.0f m, %s", math.Abs(s.Latitude), ns, math.Abs(s.Longitude), ew, s.Elevation, s.TimeZone.Name())
+	return fmt.Sprintf("%s, %.0f m, %s", feed.Coords(s.Latitude, s.Longitude, 2), s.Elevation, s.TimeZone.Name())
 }

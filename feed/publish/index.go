@@ -124,18 +124,6 @@ func trimZeros(x string) string {
 	return strings.TrimSuffix(strings.TrimRight(x, "0"), ".")
 }
 
-// formatCoords writes "52.5200° N, 13.4050° E".
-func formatCoords(lat, lon float64) string {
-	ns, ew := "N", "E"
-	if lat < 0 {
-		ns = "S"
-	}
-	if lon < 0 {
-		ew = "W"
-	}
-	return fmt.Sprintf("%.4f° %s, %.4f° %s", math.Abs(lat), ns, math.Abs(lon), ew)
-}
-
 // webcalURL turns an http(s) URL into its webcal:// form (RFC-less but
 // universal: calendar apps register the scheme and subscribe to the feed).
 func webcalURL(u *url.URL) string {
@@ -226,7 +214,7 @@ func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, 
 			zone = s.Location.String()
 		}
 		sv := siteView{
-			ID: s.ID, Name: name, Coords: formatCoords(s.Latitude, s.Longitude),
+			ID: s.ID, Name: name, Coords: feed.Coords(s.Latitude, s.Longitude, 4), // "52.5200° N, 13.4050° E"
 			Elevation: strconv.FormatFloat(math.Round(s.Elevation), 'f', 0, 64) + " m",
 			Zone:      zone, Feeds: feeds,
 		}

@@ -1,0 +1,24 @@
+package feed
+
+import (
+	"math"
+	"strconv"
+)
+
+// Coords writes a latitude and longitude in degrees with their hemisphere
+// letters and the given number of decimals: Coords(-33.45, -70.6667, 3) is
+// "33.450° S, 70.667° W". Every place the tool names a site's coordinates
+// writes them so.
+func Coords(lat, lon float64, decimals int) string {
+	ns, ew := " N", " E"
+	if lat < 0 {
+		ns = " S"
+	}
+	if lon < 0 {
+		ew = " W"
+	}
+	b := strconv.AppendFloat(nil, math.Abs(lat), 'f', decimals, 64)
+	b = append(append(b, "°"...), ns...)
+	b = strconv.AppendFloat(append(b, ", "...), math.Abs(lon), 'f', decimals, 64)
+	return string(append(append(b, "°"...), ew...))
+}

@@ -353,22 +353,7 @@ func (tr *track) goldenExtremum(st *site, a, b float64, upper bool) extremum {
 	if !upper {
 		sign = -1
 	}
-	f := func(t float64) float64 { return sign * tr.sinAltitude(st, t) }
-	const r = 0.6180339887498949 // (√5 − 1)/2
-	c, d := b-r*(b-a), a+r*(b-a)
-	fc, fd := f(c), f(d)
-	for b-a > 0.1 {
-		if fc > fd {
-			b, d, fd = d, c, fc
-			c = b - r*(b-a)
-			fc = f(c)
-		} else {
-			a, c, fc = c, d, fd
-			d = a + r*(b-a)
-			fd = f(d)
-		}
-	}
-	t := 0.5 * (a + b)
+	t := minimize(func(t float64) float64 { return -sign * tr.sinAltitude(st, t) }, a, b, 0.1)
 	return extremum{t: t, sinH: tr.sinAltitude(st, t), upper: upper}
 }
 

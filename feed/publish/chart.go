@@ -405,11 +405,10 @@ func markViews(marks []Mark, loc *time.Location, first, last time.Time) []markVi
 	rowEnd := [2]float64{math.Inf(-1), math.Inf(-1)}
 	for _, m := range marks {
 		at := wallClock(m.At, loc)
-		off := at.Sub(first)
-		if off < 0 || off >= span {
+		x, ok := chartX(at, first, span)
+		if !ok {
 			continue
 		}
-		x := plotLeft + float64(plotW)*off.Hours()/span.Hours()
 		w := 5.6 * float64(len([]rune(m.Label))) // about 5.6 units a character at 10 px
 		anchor, left := "middle", x-w/2
 		switch {
@@ -473,6 +472,16 @@ func thresholdViews(days []ChartDay, levels []Level) []thresholdView {
 	return views
 }
 
+// chartX is the x of the wall-clock time at on a chart of span from
+// first; false when at is outside it.
+func chartX(at, first time.Time, span time.Duration) (float64, bool) {
+	off := at.Sub(first)
+	if off < 0 || off >= span {
+		return 0, false
+	}
+	return plotLeft + float64(plotW)*off.Hours()/span.Hours(), true
+}
+
 // phaseViews places the new and full Moons within first..last on the row
 // above the plot.
 func phaseViews(phases []Phase, loc *time.Location, first, last time.Time) []phaseView {
@@ -480,11 +489,10 @@ func phaseViews(phases []Phase, loc *time.Location, first, last time.Time) []pha
 	var views []phaseView
 	for _, p := range phases {
 		at := wallClock(p.At, loc)
-		off := at.Sub(first)
-		if off < 0 || off >= span {
+		x, ok := chartX(at, first, span)
+		if !ok {
 			continue
 		}
-		x := plotLeft + float64(plotW)*off.Hours()/span.Hours()
 		views = append(views, phaseView{X: num(x), Y: num(phaseY), Full: p.Full, Date: chartDate(at.UTC(), first, last)})
 	}
 	return views

@@ -322,7 +322,7 @@ func describeLunar(s *siteInfo, ev Event) (string, string) {
 	case astro.Total:
 		title = fmt.Sprintf("Total lunar eclipse: the Moon in the Earth's shadow for %s", hm(span(e.U2, e.U3)))
 	case astro.Partial:
-		title = fmt.Sprintf("Partial lunar eclipse: %s of the Moon in the Earth's shadow", share(e.UmbralMagnitude))
+		title = fmt.Sprintf("Partial lunar eclipse: %s of the Moon's diameter in the Earth's shadow", share(e.UmbralMagnitude))
 	default:
 		title = "Penumbral lunar eclipse: a slight dimming of the Moon"
 	}

@@ -69,7 +69,10 @@ func TestEclipseEntriesVienna(t *testing.T) {
 			t.Errorf("lunar description lacks %q:\n%s", want, lun.Description)
 		}
 	}
-	if lun.Title != "Partial lunar eclipse: 93 % of the Moon in the Earth's shadow (at moonset)" {
+	// the umbral magnitude is the fraction of the Moon's diameter in the
+	// umbra, not of its area (the definition of Espenak & Meeus, Five
+	// Millennium Canon of Lunar Eclipses, NASA/TP-2009-214172; from memory)
+	if lun.Title != "Partial lunar eclipse: 93 % of the Moon's diameter in the Earth's shadow (at moonset)" {
 		t.Errorf("lunar title %q", lun.Title)
 	}
 	if got := strings.Join(sol.Categories, ","); got != "Sun,Solar eclipse" {

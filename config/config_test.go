@@ -182,6 +182,7 @@ func TestValidationErrors(t *testing.T) {
 		{"plan-no-title.yaml", "feeds[0].plans[0].title", "", "is required", "", 0},
 		{"bad-plan-month.yaml", "feeds[0].plans[0].months[0]", "juli", "not a month", `did you mean "jul"?`, 0},
 		{"bad-plan-alarm.yaml", "feeds[0].plans[0].alarm", "200h", "must be at most 7 days", "", 0},
+		{"bad-plan-alarm-days.yaml", "feeds[0].plans[0].alarm", "1d", "malformed duration", `the units are h, m and s: write "24h" for 1d`, 0},
 	}
 	for _, tc := range tests {
 		t.Run(strings.TrimSuffix(tc.file, filepath.Ext(tc.file))+"/"+tc.path, func(t *testing.T) {

@@ -480,7 +480,7 @@ func decodeHook() mapstructure.DecodeHookFunc {
 			case string:
 				d, err := time.ParseDuration(strings.TrimSpace(x))
 				if err != nil {
-					return nil, &valueError{Value: x, Msg: "malformed duration", Hint: `write a number with a unit, e.g. "30m", "-1h15m", "2h"`}
+					return nil, &valueError{Value: x, Msg: "malformed duration", Hint: durationHint(x)}
 				}
 				return Duration(d), nil
 			case int, int64, uint64, float64:

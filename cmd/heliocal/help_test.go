@@ -148,3 +148,15 @@ func TestEventsFeed(t *testing.T) {
 		t.Errorf("--feed with --site: exit %d: %s", code, errOut)
 	}
 }
+
+// The root help names every family of what heliocal computes, as the
+// README's opening does: the lamp periods and the eclipses too.
+func TestRootHelpNamesFamilies(t *testing.T) {
+	code, out, _ := runCLI(t, "--help")
+	text := strings.Join(strings.Fields(out), " ")
+	for _, w := range []string{"sunrise", "twilight", "golden hour", "lamp periods", "Moon phases", "dark-sky windows", "solar and lunar eclipses"} {
+		if code != 0 || !strings.Contains(text, w) {
+			t.Errorf("heliocal --help (exit %d) does not name %q:\n%s", code, w, out)
+		}
+	}
+}

@@ -111,9 +111,10 @@ func newRootCommand(g *globals) *cobra.Command {
 	root := &cobra.Command{
 		Use:   "heliocal",
 		Short: "Sun and Moon events as calendar feeds",
-		Long: `heliocal computes sunrise, sunset, twilight, golden hour, day-length thresholds, equinoxes,
-solstices, Moon phases, moonrise and dark-sky windows for the sites you configure, and
-publishes them as iCalendar feeds that calendar apps subscribe to.
+		Long: `heliocal computes sunrise, sunset, twilight, golden hour, day-length thresholds, lamp
+periods, equinoxes, solstices, Moon phases, moonrise, dark-sky windows and solar and lunar
+eclipses for the sites you configure, and publishes them as iCalendar feeds that calendar
+apps subscribe to.
 
 Configuration: --config FILE, else ./heliocal.yaml, else the built-in demo.` + exitStatusHelp,
 		SilenceUsage:  true,

@@ -936,7 +936,7 @@ func TestSkylineNoteTexts(t *testing.T) {
 		return strings.Join(out, "\n")
 	}
 	feb := titles(entries("2027-02-20", "2027-02-20", "sunrise", "sunset", "daily-summary"))
-	for _, want := range []string{"No direct Sun today: the Sun stays behind the skyline", "The Sun does not get over the site's skyline all day", "Direct Sun 0 min"} {
+	for _, want := range []string{"No direct Sun today: the Sun stays behind the skyline", "The Sun is up but does not get over the site's skyline all day", "Direct Sun 0 min"} {
 		if !strings.Contains(feb, want) {
 			t.Errorf("20 February lacks %q:\n%s", want, feb)
 		}
@@ -963,6 +963,39 @@ func TestSkylineNoteTexts(t *testing.T) {
 	one := titles(entries("2027-02-20", "2027-02-20", "photoperiod:12h"))
 	if !strings.HasPrefix(one, "Direct Sun stays below 12 h on 20 February 2027 (longest 0 min, 20 February)") {
 		t.Errorf("one date's photoperiod note: %s", one)
+	}
+}
+
+// A date without sunrise is polar night only when the Sun stays below a
+// flat horizon; behind a skyline or a horizon altitude it may be up, only
+// hidden. At 80° N, 0° (USNO tables, UT, 2015) the Sun rises over the flat
+// horizon on 21 February (rows sun-0159/0160: 11:21–13:09) but not to 5°,
+// and does not rise on 21 December (sun-0182): behind 5°, the first is "No
+// direct Sun today", the second "Polar night", for a skyline of 5° all
+// round and for a horizon altitude of 5° alike, in the sunrise note and in
+// the daily summary.
+func TestPolarNightOrBehindSkyline(t *testing.T) {
+	sk := sky(t, "2015-01-01", "2015-12-31")
+	skyline, hills := behind5(t)
+	for _, s := range []*config.Site{skyline, hills} {
+		for d, want := range map[string]string{
+			"2015-02-21": "No direct Sun today: the Sun stays behind the skyline",
+			"2015-12-21": "Polar night: the Sun does not rise today",
+		} {
+			specs := []config.KindSpec{{Kind: mustKinds(t, "sunrise")[0]}, {Kind: mustKinds(t, "daily-summary")[0]}}
+			es, err := sk.Entries(context.Background(), s, "f", specs, date(d), date(d))
+			if err != nil {
+				t.Fatal(err)
+			}
+			var text []string
+			for _, e := range es {
+				text = append(text, e.Title+" | "+e.Description)
+			}
+			all := strings.Join(text, "\n")
+			if len(es) != 2 || !strings.HasPrefix(all, want) || strings.Count(all, want) != 2 {
+				t.Errorf("%s behind 5° (skyline %v, horizon %v):\n%s\nwant %q in the note and the summary", d, s.Skyline, s.Horizon, all, want)
+			}
+		}
 	}
 }
 

@@ -130,26 +130,12 @@ func (c *collector) lighting(k config.Kind) error {
 	if err != nil {
 		return err
 	}
-	var noons map[time.Time]astro.Transit
 	needs := make([]bool, len(days))
 	for i, dl := range days {
 		// a date whose only light is the date before's day, past midnight,
 		// has no day of its own and no polar night either: no lamps
 		needs[i] = dl.length < k.DayLength && !(dl.length == 0 && dl.touched)
-		if needs[i] && dl.length == 0 && noons == nil {
-			from, to := c.span(0)
-			ts, err := c.sky.eph.SunTransits(c.p.Observer, from, to)
-			if err != nil {
-				return err
-			}
-			noons = make(map[time.Time]astro.Transit, len(ts))
-			for _, t := range ts {
-				noons[localDate(t.Time, c.p.Location)] = t
-			}
-		}
 	}
-	flat := c.p.Observer // the same place with a flat horizon: is the Sun up at all?
-	flat.Horizon = 0
 	lim := limitsOf(spec)
 	minLen := spec.MinDuration.D()
 	lamps := spec.Lamps
@@ -213,13 +199,16 @@ func (c *collector) lighting(k config.Kind) error {
 		var ps [2]Event
 		switch {
 		case dl.length == 0:
-			tr, ok := noons[d]
+			tr, ok, err := c.noonOf(d)
+			if err != nil {
+				return err
+			}
 			noon := tr.Time
 			if !ok {
 				noon = midnight(d, c.p.Location).Add(12 * time.Hour)
 			}
 			part := partPolarNight
-			if ok && alt != astro.CivilTwilight && tr.Altitude > flat.RiseSetAltitude() {
+			if ok && alt != astro.CivilTwilight && c.upAtNoon(tr) {
 				part = partBehindSkyline // up at noon, but not over the skyline
 			}
 			ps[0] = period(part, noon.Add(-short/2), noon.Add(short-short/2))

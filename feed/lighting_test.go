@@ -546,10 +546,7 @@ func TestLightingDayAcrossMidnight(t *testing.T) {
 // not, and so they do with civil twilight as the natural light.
 func TestLightingBehindSkylineIsNotPolarNight(t *testing.T) {
 	sk := sky(t, "2015-01-01", "2015-12-31")
-	skyline := site(t, "lat80", 80, 0, "UTC")
-	skyline.Skyline = [][2]float64{{0, 5}, {120, 5}, {240, 5}}
-	hills := site(t, "lat80", 80, 0, "UTC")
-	hills.Horizon = 5
+	skyline, hills := behind5(t)
 	flat := site(t, "lat80", 80, 0, "UTC")
 	part := func(s *config.Site, d string, natural string) (string, string) {
 		spec := lightingSpec(t, "lighting:16h", func(ks *config.KindSpec) { ks.Natural = natural })
@@ -586,4 +583,14 @@ func TestLightingBehindSkylineIsNotPolarNight(t *testing.T) {
 	if p, _ := part(skyline, "2015-12-21", config.NaturalCivil); p != partPolarNight {
 		t.Errorf("21 December, civil natural light, skyline: part %q", p)
 	}
+}
+
+// behind5 is the USNO tables' place at 80° N, 0° behind 5°: a skyline of
+// 5° all round, and a horizon altitude of 5°.
+func behind5(t *testing.T) (skyline, hills *config.Site) {
+	skyline = site(t, "lat80", 80, 0, "UTC")
+	skyline.Skyline = [][2]float64{{0, 5}, {120, 5}, {240, 5}}
+	hills = site(t, "lat80", 80, 0, "UTC")
+	hills.Horizon = 5
+	return skyline, hills
 }

@@ -95,6 +95,10 @@ type Note struct {
 	Last        time.Time
 	// DirectSun: DayLength is the direct Sun over the site's skyline.
 	DirectSun bool
+	// Hidden: a sunrise or sunset note of a date the Sun stays below the
+	// site's skyline (or horizon altitude) while it is up over a flat
+	// horizon at noon: behind the hills, not polar night.
+	Hidden bool
 }
 
 // Place is where events are computed: an observer and the zone whose local
@@ -320,6 +324,8 @@ type collector struct {
 	thresholds   map[float64]*threshold
 	maxLit       float64         // dark-window: the Moon's largest illuminated fraction still dark
 	spec         config.KindSpec // the options of the kind being added (lighting)
+
+	noonsByDate map[time.Time]astro.Transit // the Sun's transits by local date, computed once (noonOf)
 }
 
 func (c *collector) inRange(d time.Time) bool {
@@ -622,11 +628,18 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 			c.events = append(c.events, e)
 		}
 		if !crossed {
-			state := astro.AlwaysBelow
+			n := Note{Kind: k, Date: d, State: astro.AlwaysBelow, Family: family}
 			if up {
-				state = astro.AlwaysAbove
+				n.State = astro.AlwaysAbove
 			}
-			c.notes = append(c.notes, Note{Kind: k, Date: d, State: state, Family: family})
+			if horizon && !up && (alt == skylineKey || c.p.Observer.Horizon > 0) {
+				tr, ok, err := c.noonOf(d)
+				if err != nil {
+					return err
+				}
+				n.Hidden = ok && c.upAtNoon(tr)
+			}
+			c.notes = append(c.notes, n)
 		}
 	}
 	return nil
@@ -643,6 +656,35 @@ func (c *collector) dayStarts() []time.Time {
 		}
 	}
 	return c.starts
+}
+
+// noonOf returns the Sun's upper transit (solar noon, with its altitude)
+// on the local date d (first..last), computed once for all dates; false
+// when the date has none.
+func (c *collector) noonOf(d time.Time) (astro.Transit, bool, error) {
+	if c.noonsByDate == nil {
+		from, to := c.span(0)
+		ts, err := c.sky.eph.SunTransits(c.p.Observer, from, to)
+		if err != nil {
+			return astro.Transit{}, false, err
+		}
+		c.noonsByDate = make(map[time.Time]astro.Transit, len(ts))
+		for _, t := range ts {
+			c.noonsByDate[localDate(t.Time, c.p.Location)] = t
+		}
+	}
+	tr, ok := c.noonsByDate[d]
+	return tr, ok, nil
+}
+
+// upAtNoon reports whether the Sun at the transit tr is up over a flat
+// horizon (the site's elevation and air, horizon altitude 0): on a date
+// without sunrise at a site with a skyline or a horizon altitude above 0,
+// the Sun is then behind the skyline, not in polar night.
+func (c *collector) upAtNoon(tr astro.Transit) bool {
+	flat := c.p.Observer
+	flat.Horizon = 0
+	return tr.Altitude > flat.RiseSetAltitude()
 }
 
 // noonClear adds, for a site with a skyline, the dates whose solar noon

@@ -718,8 +718,8 @@ func describeNote(s *siteInfo, n Note) (string, string) {
 		switch {
 		case len(s.Skyline) > 0 && above:
 			title, desc = "The Sun stays over the skyline all day: no sunset today", "The Sun stays over the site's skyline all day and night"
-		case len(s.Skyline) > 0:
-			title, desc = "No direct Sun today: the Sun stays behind the skyline", "The Sun does not get over the site's skyline all day"
+		case n.Hidden:
+			title, desc = "No direct Sun today: the Sun stays behind the skyline", "The Sun is up but does not get over the site's skyline all day"
 		case above:
 			title, desc = "Midnight sun: the Sun does not set today", "The Sun stays above the horizon all day and night"
 		default:

@@ -22,9 +22,8 @@ import (
 // BenchmarkMarshal): the same properties in the same order
 // (those the library's setters wrote: NewEvent, SetDtStampTime,
 // SetAllDayStartAt or SetProperty with TZID, SetSummary, SetDescription,
-// SetLocation, GEO, SetTimeTransparency, X-MICROSOFT-CDO-BUSYSTATUS,
-// SetSequence, SetLastModifiedAt, then the pre-formatted lines and the
-// VALARM), the library's TEXT escaping (escapeText) and its folding
+// SetLocation, GEO, SetTimeTransparency, X-MICROSOFT-CDO-BUSYSTATUS, then
+// the pre-formatted lines and the VALARM), the library's TEXT escaping (escapeText) and its folding
 // (libraryFold), and the pre-formatted lines folded as contentLine folds
 // them. TestMarshalMatchesReference, TestEventsOtherConfigurations and
 // FuzzMarshalMatchesReference hold the output byte-identical to the
@@ -56,8 +55,7 @@ type eventLines struct {
 
 	begin, end []byte // BEGIN:VEVENT, END:VEVENT
 	stamp      []byte // DTSTAMP
-	// tail: LOCATION, GEO, TRANSP, X-MICROSOFT-CDO-BUSYSTATUS, SEQUENCE,
-	// LAST-MODIFIED.
+	// tail: LOCATION, GEO, TRANSP, X-MICROSOFT-CDO-BUSYSTATUS.
 	tail []byte
 	// alarmHead is BEGIN:VALARM and ACTION, alarmTail TRIGGER and
 	// END:VALARM; the alarm's DESCRIPTION goes between them.
@@ -81,8 +79,11 @@ func (w *writer) setLines(cfg *ics.SerializationConfiguration) {
 	l.tail = w.plainLine(l.tail, "GEO:", w.geo) // FLOAT: not escaped
 	l.tail = w.textLine(l.tail, "TRANSP:", string(ics.TransparencyTransparent))
 	l.tail = w.textLine(l.tail, "X-MICROSOFT-CDO-BUSYSTATUS:", "FREE") // unknown to the library: TEXT
-	l.tail = w.plainLine(l.tail, "SEQUENCE:", "0")
-	l.tail = w.plainLine(l.tail, "LAST-MODIFIED:", w.stampValue)
+	// No SEQUENCE: an event never revised has sequence 0, which RFC 5546
+	// §3.2.2 asks to leave out ("MUST be present if value is greater than
+	// 0"). No LAST-MODIFIED per event: in a calendar without METHOD,
+	// DTSTAMP is equivalent to it (RFC 5545 §3.8.7.2), and it held the
+	// calendar's own LAST-MODIFIED anyway. 44 octets an event fewer.
 	l.alarmHead = append([]byte("BEGIN:VALARM"), cfg.NewLine...)
 	l.alarmHead = w.textLine(l.alarmHead, "ACTION:", string(ics.ActionDisplay))
 	l.alarmTail = w.plainLine(nil, "TRIGGER:", w.trigger)

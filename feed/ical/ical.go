@@ -38,7 +38,8 @@
 // VTIMEZONE. All-day entries are DATE values with an exclusive DTEND.
 //
 // The output is deterministic: the same Calendar gives byte-identical bytes.
-// Nothing reads the wall clock; DTSTAMP and LAST-MODIFIED are Calendar.Stamp.
+// Nothing reads the wall clock; the events' DTSTAMP and the calendar's
+// LAST-MODIFIED are Calendar.Stamp.
 //
 // # Size
 //
@@ -186,7 +187,7 @@ type writer struct {
 	stamp time.Time
 	geo   string
 
-	stampValue string // DTSTAMP and LAST-MODIFIED value
+	stampValue string // DTSTAMP value
 	location   string // LOCATION value (cleaned site name), "" for none
 	trigger    string // VALARM TRIGGER value
 

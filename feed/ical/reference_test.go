@@ -103,8 +103,6 @@ func referenceEvent(w *writer, e *feed.Entry) (*ics.VEvent, error) {
 	ev.SetProperty(ics.ComponentPropertyGeo, w.geo)
 	ev.SetTimeTransparency(ics.TransparencyTransparent)
 	ev.AddProperty("X-MICROSOFT-CDO-BUSYSTATUS", "FREE")
-	ev.SetSequence(0)
-	ev.SetLastModifiedAt(w.stamp)
 	if cats := categories(e.Categories); cats != "" {
 		extra = append(extra, &contentLine{line: "CATEGORIES:" + cats})
 	}

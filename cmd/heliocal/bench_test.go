@@ -77,7 +77,19 @@ func BenchmarkEventsCommand20YearsTable(b *testing.B) {
 // new place (sunrise, sunset, civil dawn and dusk: the default kinds),
 // catalogue and iCalendar encoding; the dates' shared ephemeris is built
 // once, as the server keeps it for every place.
-func BenchmarkAdhocFeed(b *testing.B) {
+func BenchmarkAdhocFeed(b *testing.B) { benchAdhocFeed(b, nil) }
+
+// BenchmarkAdhocFeedSkyline: the same with a skyline of 72 points, one
+// every 5° (the most an ad-hoc query takes), between 3° and 11°.
+func BenchmarkAdhocFeedSkyline(b *testing.B) {
+	pts := make([][2]float64, 72)
+	for i := range pts {
+		pts[i] = [2]float64{float64(i * 5), float64(3 + 2*(i*7%5))}
+	}
+	benchAdhocFeed(b, pts)
+}
+
+func benchAdhocFeed(b *testing.B, skyline [][2]float64) {
 	vienna, err := time.LoadLocation("Europe/Vienna")
 	if err != nil {
 		b.Fatal(err)
@@ -85,7 +97,7 @@ func BenchmarkAdhocFeed(b *testing.B) {
 	build := adhocFeed(newLayout(""), 24*time.Hour)
 	q := serve.AdhocQuery{Latitude: 47.8, Longitude: 13.05, Location: vienna,
 		Kinds: []string{"civil-dawn", "civil-dusk", "sunrise", "sunset"},
-		Start: time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC), Days: 365}
+		Start: time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC), Days: 365, Skyline: skyline}
 	if _, err := build(context.Background(), q, nil); err != nil { // the shared ephemeris
 		b.Fatal(err)
 	}

@@ -1031,3 +1031,29 @@ func TestAllDayOrderByValue(t *testing.T) {
 		t.Errorf("the catalogue's order of kinds comes first: sunrise after photoperiod (%d)", c)
 	}
 }
+
+// A longest (or shortest) day that rounds to the minute onto the threshold
+// it does not cross is given to the second, so the note never reads
+// "never reaches 14 h (longest 14 h 00 min)"; otherwise to the minute.
+func TestNotReachedTextNearThreshold(t *testing.T) {
+	d, last, june, dec := date("2027-01-01"), date("2027-12-31"), date("2027-06-21"), date("2027-12-22")
+	for _, c := range []struct {
+		kind   string
+		state  astro.State
+		length time.Duration
+		want   string
+	}{
+		{"photoperiod:14h", astro.AlwaysBelow, 13*time.Hour + 59*time.Minute + 40*time.Second, "Day length never reaches 14 h here (longest 13 h 59 min 40 s, 21 June)"},
+		{"photoperiod:10h", astro.AlwaysAbove, 10*time.Hour + 20*time.Second, "Day length never falls below 10 h here (shortest 10 h 00 min 20 s, 22 December)"},
+		{"photoperiod:14h", astro.AlwaysBelow, 13*time.Hour + 58*time.Minute + 40*time.Second, "Day length never reaches 14 h here (longest 13 h 59 min, 21 June)"},
+	} {
+		extreme := june
+		if c.state == astro.AlwaysAbove {
+			extreme = dec
+		}
+		n := Note{Kind: mustKinds(t, c.kind)[0], Date: d, Last: last, State: c.state, DayLength: c.length, ExtremeDate: extreme}
+		if got := NotReachedText(n); got != c.want {
+			t.Errorf("%s, %v: %q, want %q", c.kind, c.length, got, c.want)
+		}
+	}
+}

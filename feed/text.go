@@ -790,7 +790,13 @@ func NotReachedText(n Note) string {
 	if n.DirectSun {
 		what = "Direct Sun"
 	}
-	return fmt.Sprintf("%s %s (%s %s, %s)", what, when, extreme, hm(n.DayLength), n.ExtremeDate.Format("2 January"))
+	// to the minute a longest day of 13 h 59 min 40 s would read "14 h 00
+	// min" beside "never reaches 14 h": it is then given to the second
+	length := hm(n.DayLength)
+	if length == hm(n.Kind.DayLength) {
+		length = Length(n.DayLength, time.Second)
+	}
+	return fmt.Sprintf("%s %s (%s %s, %s)", what, when, extreme, length, n.ExtremeDate.Format("2 January"))
 }
 
 // noEventToday gives the title and the explanation of a date on which a

@@ -582,7 +582,12 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 			b = append(ed.AppendFormat(append(b, " the next day ("...), "Mon 2 Jan"), ')')
 		}
 	}
-	b = append(append(append(append(b, " at "...), pt.where...), ".\n"...), cautionLegal...)
+	b = append(append(append(b, " at "...), pt.where...), '.')
+	// the legal caution is for times the sky sets; a plan from 23:30 to
+	// 00:30 by the clock has none
+	if !pl.start.IsClock || (pl.end != nil && !pl.end.IsClock) {
+		b = append(append(b, '\n'), cautionLegal...)
+	}
 	en.Description = string(b)
 	w.out = append(w.out, en)
 	return nil

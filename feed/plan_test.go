@@ -286,3 +286,28 @@ func TestPlanSunTimesByDate(t *testing.T) {
 		}
 	}
 }
+
+// The legal caution (hunting hours, lighting-up times, aviation night: the
+// project's rule for times people may rely on) goes on plans whose start or
+// end the sky sets, not on a plan kept by the clock, where nothing is
+// computed.
+func TestPlanCautionOnlyForSkyTimes(t *testing.T) {
+	s := site(t, "scl", -33.45, -70.67, "America/Santiago")
+	for _, c := range []struct {
+		plan config.Plan
+		want bool
+	}{
+		{config.Plan{Title: "Late shift", Date: "every day", Start: "23:30", End: "00:30"}, false},
+		{config.Plan{Title: "Gate", Date: "every day", Start: "20:00", For: config.Duration(time.Hour)}, false},
+		{config.Plan{Title: "Dusk walk", Date: "every day", Start: "sunset", End: "22:00"}, true},
+		{config.Plan{Title: "Dawn patrol", Date: "every day", Start: "05:00", End: "sunrise"}, true},
+	} {
+		es := planEntries(t, s, "2027-01-10", "2027-01-10", c.plan)
+		if len(es) != 1 {
+			t.Fatalf("%s: %d entries", c.plan.Title, len(es))
+		}
+		if got := strings.Contains(es[0].Description, "local rules decide legal times"); got != c.want {
+			t.Errorf("%s: caution %v, want %v:\n%s", c.plan.Title, got, c.want, es[0].Description)
+		}
+	}
+}

@@ -173,3 +173,29 @@ func TestSummaryAfterMidnightAtWindowEdges(t *testing.T) {
 		}
 	}
 }
+
+// The index chart's day lengths are the feeds' (common practice: sunrise to
+// sunset): at 78.2° N in mid-April, with sunsets after midnight, each
+// date's Profile.Daylight is the daily summary's day length, so the chart's
+// caption and photoperiod marks agree with the photoperiod entries.
+func TestProfilesDayLengthIsTheSummarys(t *testing.T) {
+	s := site(t, "isfjell-hut", 78.2, 15.6, "Arctic/Longyearbyen")
+	sk := sky(t, "2027-04-10", "2027-04-25")
+	events, _, err := sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "daily-summary"), date("2027-04-10"), date("2027-04-25"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	ps, err := sk.Profiles(PlaceOf(s), date("2027-04-10"), date("2027-04-25"))
+	if err != nil || len(ps) != len(events) {
+		t.Fatalf("%d profiles (%v) for %d summaries", len(ps), err, len(events))
+	}
+	for i, e := range events {
+		if p := ps[i]; !p.Date.Equal(e.Date) || p.Daylight != e.DayLength {
+			t.Errorf("%s: chart day length %v, summary %v", p.Date.Format(time.DateOnly), p.Daylight, e.DayLength)
+		}
+	}
+	// 17 April: the day from 02:14 to 00:03 the next date, whole
+	if d := ps[7].Daylight.Round(time.Minute); d != 21*time.Hour+48*time.Minute {
+		t.Errorf("17 April: chart day length %v, want 21 h 48 min", d)
+	}
+}

@@ -894,24 +894,30 @@ func (c *collector) aboveFrom(alt float64, back int) ([]time.Duration, error) {
 // stays above the horizon and above each twilight limit.
 type Profile struct {
 	Date         time.Time     // local date, 00:00 UTC
-	Daylight     time.Duration // upper limb above the horizon (sunrise to sunset)
+	Daylight     time.Duration // the day length of the daily summary and photoperiod (dayLengths)
 	Civil        time.Duration // centre above −6°
 	Nautical     time.Duration // centre above −12°
 	Astronomical time.Duration // centre above −18°
 }
 
-// Profiles returns the daylight and twilight durations of each local date
-// first..last.
+// Profiles returns the day length and twilight durations of each local
+// date first..last.
 func (s *Sky) Profiles(p Place, first, last time.Time) ([]Profile, error) {
 	c := &collector{ctx: context.Background(), sky: s, p: p, first: civil(first), last: civil(last)}
 	var cols [4][]time.Duration
-	for i, alt := range []float64{p.riseAlt(), astro.CivilTwilight, astro.NauticalTwilight, astro.AstronomicalTwilight} {
+	for i, alt := range []float64{astro.CivilTwilight, astro.NauticalTwilight, astro.AstronomicalTwilight} {
 		l, err := c.above(alt)
 		if err != nil {
 			return nil, err
 		}
-		cols[i] = l
+		cols[i+1] = l
 	}
+	// the day length as the feeds count it: a day that ends after
+	// midnight counts whole on the date of its sunrise
+	if err := c.dayLengths(); err != nil {
+		return nil, err
+	}
+	cols[0] = c.lengths
 	out := make([]Profile, 0, len(cols[0])-1)
 	for i := 1; i < len(cols[0]); i++ {
 		out = append(out, Profile{Date: c.first.AddDate(0, 0, i-1),

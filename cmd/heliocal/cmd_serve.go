@@ -205,5 +205,6 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 		}
 		return fmt.Errorf("%s %s: cannot listen: %w", from, listen, cause)
 	}
+	defer startServeGC(g.getenv)() // fewer collections for the ad-hoc feeds' garbage
 	return srv.Run(ctx, ln)
 }

@@ -234,6 +234,7 @@ type result struct {
 	firstErr  error
 	bytes     int64
 	serverCPU time.Duration // CPU time the started server used during the run (0: unknown)
+	serverRSS int64         // the started server's peak resident memory so far, bytes (0: unknown)
 	clientCPU time.Duration // CPU time loadtest itself used
 }
 
@@ -262,6 +263,9 @@ func (r *result) print() {
 	if r.serverCPU > 0 {
 		per := r.serverCPU / time.Duration(n)
 		fmt.Printf("  server CPU  %v per request → about %.0f req/s per core\n", per, float64(time.Second)/float64(per))
+	}
+	if r.serverRSS > 0 {
+		fmt.Printf("  server RSS  peak %.0f MB so far\n", float64(r.serverRSS)/1e6)
 	}
 	if r.clientCPU > 0 {
 		fmt.Printf("  client CPU  %v per request\n", r.clientCPU/time.Duration(n))
@@ -317,6 +321,7 @@ func measure(name string, conns, n int, worker func(l *tally)) *result {
 		r.serverCPU = cpu1 - cpu0
 	}
 	r.clientCPU = selfCPU() - self0
+	r.serverRSS = processPeakRSS(serverPID)
 	for _, l := range locals {
 		r.latencies = append(r.latencies, l.lat...)
 		for k, v := range l.statuses {
@@ -531,6 +536,29 @@ func processCPU(pid int) (time.Duration, bool) {
 	}
 	const clkTck = 100 // USER_HZ on Linux
 	return time.Duration(utime+stime) * time.Second / clkTck, true
+}
+
+// processPeakRSS returns the peak resident set size of process pid in bytes
+// (VmHWM in /proc/<pid>/status, Linux); 0 elsewhere or for pid 0.
+func processPeakRSS(pid int) int64 {
+	if pid == 0 {
+		return 0
+	}
+	data, err := os.ReadFile("/proc/" + strconv.Itoa(pid) + "/status")
+	if err != nil {
+		return 0
+	}
+	for line := range strings.Lines(string(data)) {
+		if v, ok := strings.CutPrefix(line, "VmHWM:"); ok {
+			f := strings.Fields(v) // "12345 kB"
+			if len(f) == 2 && f[1] == "kB" {
+				if kb, err := strconv.ParseInt(f[0], 10, 64); err == nil {
+					return kb << 10
+				}
+			}
+		}
+	}
+	return 0
 }
 
 // selfCPU is this process's CPU time.

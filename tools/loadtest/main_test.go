@@ -7,6 +7,7 @@ import (
 	"net/http"
 	"net/http/httptest"
 	"net/url"
+	"os"
 	"slices"
 	"strings"
 	"sync/atomic"
@@ -114,4 +115,18 @@ func TestRawLoadReadsWholeResponses(t *testing.T) {
 	if want := int64(50 * len(body)); r.bytes != want {
 		t.Errorf("read %d body bytes, want %d", r.bytes, want)
 	}
+}
+
+func TestProcessPeakRSS(t *testing.T) {
+	big := make([]byte, 32<<20)
+	for i := range big {
+		big[i] = 1 // touched: resident
+	}
+	if rss := processPeakRSS(os.Getpid()); rss < int64(len(big)) {
+		t.Errorf("peak RSS %d bytes, want at least the %d just touched", rss, len(big))
+	}
+	if rss := processPeakRSS(0); rss != 0 {
+		t.Errorf("pid 0: %d, want 0 (unknown)", rss)
+	}
+	_ = big[len(big)-1]
 }

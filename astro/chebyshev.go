@@ -1,6 +1,9 @@
 package astro
 
-import "math"
+import (
+	"math"
+	"slices"
+)
 
 // The Sun's shared ephemeris needs the Earth's heliocentric position once a
 // day. The full VSOP87D series costs about 15 µs a call (1,567 cosines), so
@@ -98,27 +101,37 @@ func slowNodes(jde0 float64, n int, xs *[sunChebNodes]float64) (vals [3][]float6
 	}
 	const h = sunChebDays / julianMillennium // a block in millennia
 	part := make([]float64, m)
+	tp := make([]float64, m) // τᵖ
 	for v := range 3 {
 		vals[v] = make([]float64, m)
-		for p, terms := range slowTerms[v] {
+		for k := range m {
+			tp[k] = 1
+		}
+		for _, terms := range slowTerms[v] {
 			clear(part)
 			for _, t := range terms {
 				sr, cr := math.Sincos(t.c * h)
-				for j := range sunChebNodes {
-					var C, S float64
-					for i := range n {
-						k := i*sunChebNodes + j
-						if i%slowRestart == 0 {
-							S, C = math.Sincos(t.b + t.c*tau[k])
-						} else {
-							C, S = C*cr-S*sr, S*cr+C*sr
+				var C, S [sunChebNodes]float64 // node j's rotation: independent of the others'
+				for i := range n {
+					ps := part[i*sunChebNodes : (i+1)*sunChebNodes]
+					ts := tau[i*sunChebNodes : (i+1)*sunChebNodes]
+					if i%slowRestart == 0 {
+						for j := range sunChebNodes {
+							S[j], C[j] = math.Sincos(t.b + t.c*ts[j])
 						}
-						part[k] += t.a * C
+					} else {
+						for j := range sunChebNodes {
+							C[j], S[j] = C[j]*cr-S[j]*sr, S[j]*cr+C[j]*sr
+						}
+					}
+					for j := range sunChebNodes {
+						ps[j] += t.a * C[j]
 					}
 				}
 			}
 			for k := range m {
-				vals[v][k] += part[k] * math.Pow(tau[k], float64(p))
+				vals[v][k] += part[k] * tp[k]
+				tp[k] *= tau[k]
 			}
 		}
 	}
@@ -162,31 +175,56 @@ func (s *earthSeries) daily(jdes []float64) (L, B, R []float64) {
 		tau[k] = (j - J2000) / julianMillennium
 		out[0][k], out[1][k], out[2][k] = s.slowAt(j)
 	}
-	part := make([]float64, n)
+	// off[k] is sample k's offset from the one-day grid of its run (days
+	// in millennia), each term's rotation being restarted at every
+	// sunChebDays-th sample.
+	off := make([]float64, n)
+	var t0 float64
+	for k := range n {
+		if k%sunChebDays == 0 {
+			t0 = tau[k] - float64(k)*h
+		}
+		off[k] = tau[k] - t0 - float64(k)*h
+	}
+	// per run of sunChebDays samples and power of τ, every term's cosine
+	// and sine rotated together from sample to sample: the terms' rotations
+	// are independent of one another
+	var C, S, cr, sr []float64
+	tp := make([]float64, n) // τᵖ
 	for v := range 3 {
-		for p, terms := range fastTerms[v] {
-			clear(part)
-			for _, t := range terms {
-				sr, cr := math.Sincos(t.c * h)
-				var C, S, t0 float64
-				for k := range n {
-					if k%sunChebDays == 0 {
-						t0 = tau[k] - float64(k)*h
-						S, C = math.Sincos(t.b + t.c*tau[k])
-					} else {
-						C, S = C*cr-S*sr, S*cr+C*sr
-					}
-					d := t.c * (tau[k] - t0 - float64(k)*h) // offset from the grid, rad
-					part[k] += t.a * (C - S*d)
-				}
+		for k := range n {
+			tp[k] = 1
+		}
+		for _, terms := range fastTerms[v] {
+			m := len(terms)
+			C, S, cr, sr = slices.Grow(C[:0], m)[:m], slices.Grow(S[:0], m)[:m], slices.Grow(cr[:0], m)[:m], slices.Grow(sr[:0], m)[:m]
+			for i, t := range terms {
+				sr[i], cr[i] = math.Sincos(t.c * h)
 			}
 			for k := range n {
-				out[v][k] += part[k] * math.Pow(tau[k], float64(p))
+				var sum float64
+				if k%sunChebDays == 0 {
+					for i, t := range terms {
+						S[i], C[i] = math.Sincos(t.b + t.c*tau[k])
+						sum += t.a * C[i]
+					}
+				} else {
+					d := off[k]
+					for i, t := range terms {
+						c, s := C[i]*cr[i]-S[i]*sr[i], S[i]*cr[i]+C[i]*sr[i]
+						C[i], S[i] = c, s
+						sum += t.a * (c - s*t.c*d)
+					}
+				}
+				out[v][k] += sum * tp[k]
+			}
+			for k := range n {
+				tp[k] *= tau[k]
 			}
 		}
 	}
-	for k := range out[0] {
-		out[0][k] = norm2Pi(out[0][k])
+	for k, L := range out[0] {
+		out[0][k] = L - 2*math.Pi*math.Floor(L/(2*math.Pi)) // within an ulp of norm2Pi's
 	}
 	return out[0], out[1], out[2]
 }

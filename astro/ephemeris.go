@@ -258,8 +258,10 @@ func NewEphemeris(from, to time.Time) (*Ephemeris, error) {
 				jdes[k] = es[k].JDE
 			}
 			Ls, Bs, Rs := series.daily(jdes)
+			dpsi, deps := nutationDaily(jdes)
 			tr.fill(k0, es, func(k int, e Epoch) (ra, dec, dist, eqEq float64) {
-				s := apparentSunFrom(e.JDE, Ls[k-k0], Bs[k-k0], Rs[k-k0])
+				i := k - k0
+				s := apparentSunNut(e.JDE, Ls[i], Bs[i], Rs[i], dpsi[i], deps[i])
 				return s.ra, s.dec, s.r * earthRadiiPerAU, s.dpsi * math.Cos(s.eps)
 			})
 		})

@@ -74,8 +74,13 @@ func apparentSun(jde float64) sunApparent {
 // apparentSunFrom is apparentSun from the Earth's heliocentric L, B, R at
 // jde (VSOP87D or its Chebyshev fit).
 func apparentSunFrom(jde, L, B, R float64) sunApparent {
-	lambda, beta := sunFK5(jde, L, B)
 	dpsi, deps := nutationRad(jde)
+	return apparentSunNut(jde, L, B, R, dpsi, deps)
+}
+
+// apparentSunNut is apparentSunFrom with the nutation at jde given.
+func apparentSunNut(jde, L, B, R, dpsi, deps float64) sunApparent {
+	lambda, beta := sunFK5(jde, L, B)
 	eps := meanObliquityRad(jde) + deps
 	lambda = norm2Pi(lambda + dpsi - 20.4898*arcsec2rad/R)
 	ra, dec := eclipticToEquatorial(lambda, beta, eps)

@@ -124,11 +124,13 @@ func TestEventChunksOrderAndStop(t *testing.T) {
 	}
 }
 
-// sortByKey gives what a stable sort gives, for runs in order, out of
-// order, empty, with ties within and across runs, and with keys bunched in
-// a few places (crowded buckets).
+// sortByKey and mergeByKey give what a stable sort gives, for runs in
+// order, out of order (more than maxRuns runs for mergeByKey, which then
+// sorts), empty, with ties within and across runs, and with keys bunched
+// in a few places (crowded buckets).
 func TestSortByKey(t *testing.T) {
 	type item struct{ key, id int64 }
+	var keys []int64
 	r := rand.New(rand.NewPCG(1, 2))
 	for trial := range 500 {
 		var xs []item
@@ -157,6 +159,10 @@ func TestSortByKey(t *testing.T) {
 		want := slices.Clone(xs)
 		slices.SortStableFunc(want, func(a, b item) int { return cmp.Compare(a.key, b.key) })
 		got := sortByKey(slices.Clone(xs), nil, func(x *item) int64 { return x.key })
+		if !slices.Equal(got, want) {
+			t.Fatalf("runs %v of %v: sorted %v, want %v", bounds, xs, got, want)
+		}
+		got = mergeByKey(slices.Clone(xs), got[:0], &keys, func(x *item) int64 { return x.key })
 		if !slices.Equal(got, want) {
 			t.Fatalf("runs %v of %v: merged %v, want %v", bounds, xs, got, want)
 		}

@@ -233,6 +233,71 @@ func (s *Sky) EventsFor(ctx context.Context, p Place, specs []config.KindSpec, f
 type buffers struct {
 	events, merged []Event
 	notes, mnotes  []Note
+	keys           []int64
+}
+
+// eventsPerDate is about how many events specs give a date: one per kind,
+// two for a threshold crossed both ways.
+func eventsPerDate(specs []config.KindSpec) int {
+	n := 0
+	for _, sp := range specs {
+		n++
+		if sp.Kind.Name == "sun-altitude" {
+			n++
+		}
+	}
+	return n
+}
+
+// maxRuns is the number of ordered runs above which mergeByKey sorts
+// instead of merging.
+const maxRuns = 64
+
+// mergeByKey appends to out the items of xs in the order of key, equal
+// keys in the order of xs (stable), as sortByKey does, for xs made of a few
+// runs already in order (each kind appends its own run of events): the
+// runs are merged, each item moved once. keys is a scratch buffer. With
+// more than maxRuns runs it sorts (sortByKey).
+func mergeByKey[T any](xs []T, out []T, keys *[]int64, key func(*T) int64) []T {
+	n := len(xs)
+	ks := slices.Grow((*keys)[:0], n)[:n]
+	*keys = ks
+	var starts [maxRuns + 1]int
+	runs := 0
+	for i := range xs {
+		ks[i] = key(&xs[i])
+		if i == 0 || ks[i] < ks[i-1] {
+			if runs == maxRuns {
+				return sortByKey(xs, out, key)
+			}
+			starts[runs] = i
+			runs++
+		}
+	}
+	starts[runs] = n
+	var pos, end [maxRuns]int
+	for r := range runs {
+		pos[r], end[r] = starts[r], starts[r+1]
+	}
+	out = slices.Grow(out, n)
+	for runs > 0 {
+		// the run whose next key is least, the earliest run on ties
+		best := 0
+		bk := ks[pos[0]]
+		for r := 1; r < runs; r++ {
+			if k := ks[pos[r]]; k < bk {
+				best, bk = r, k
+			}
+		}
+		out = append(out, xs[pos[best]])
+		pos[best]++
+		if pos[best] == end[best] { // drop the run, keeping the others in order
+			copy(pos[best:runs], pos[best+1:runs])
+			copy(end[best:runs], end[best+1:runs])
+			runs--
+		}
+	}
+	return out
 }
 
 func (s *Sky) eventsFor(ctx context.Context, p Place, specs []config.KindSpec, first, last time.Time, buf *buffers) ([]Event, []Note, error) {
@@ -242,6 +307,10 @@ func (s *Sky) eventsFor(ctx context.Context, p Place, specs []config.KindSpec, f
 			last.Format(time.DateOnly), first.Format(time.DateOnly))
 	}
 	c := &collector{ctx: ctx, sky: s, p: p, first: first, last: last, events: buf.events[:0], notes: buf.notes[:0]}
+	// room for about every event at once: grown step by step, the buffer
+	// would be copied a dozen times
+	days := int(last.Sub(first).Hours()/24) + 1
+	c.events = slices.Grow(c.events, days*eventsPerDate(specs)+16)
 	if err := c.prepare(altitudes(p.Observer, specs)...); err != nil {
 		return nil, nil, fmt.Errorf("feed: %w", err)
 	}
@@ -254,7 +323,7 @@ func (s *Sky) eventsFor(ctx context.Context, p Place, specs []config.KindSpec, f
 		}
 	}
 	buf.events, buf.notes = c.events, c.notes
-	buf.merged = sortByKey(c.events, buf.merged[:0], func(e *Event) int64 { return e.Start.UnixNano() })
+	buf.merged = mergeByKey(c.events, buf.merged[:0], &buf.keys, func(e *Event) int64 { return e.Start.UnixNano() })
 	buf.mnotes = sortByKey(c.notes, buf.mnotes[:0], func(n *Note) int64 { return n.Date.Unix() })
 	return buf.merged, buf.mnotes, nil
 }

@@ -268,6 +268,8 @@ func NewEphemeris(from, to time.Time) (*Ephemeris, error) {
 	}
 	wg.Wait()
 	tr.finish()
+	tr.trig()
+	tr.carry = true
 	return &Ephemeris{coverage: coverage{qa, qb}, sun: tr}, nil
 }
 

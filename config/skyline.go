@@ -37,7 +37,7 @@ func (s *Site) resolveHorizon(path, dir string) []FieldError {
 		if dir != "" && !filepath.IsAbs(name) {
 			name = filepath.Join(dir, name)
 		}
-		pts, err := readSkylineCSV(name)
+		pts, lines, err := readSkylineCSV(name)
 		if err != nil {
 			hint := `a CSV file of "azimuth,altitude" lines, e.g. "90,8"`
 			if name != v {
@@ -46,7 +46,15 @@ func (s *Site) resolveHorizon(path, dir string) []FieldError {
 			return []FieldError{{Path: path, Value: v, Msg: err.Error(), Hint: hint}}
 		}
 		s.HorizonFile = name
-		return s.setSkyline(path, pts)
+		// a bad point is named by the file and its line, not its index
+		ps := s.setSkyline(path, pts, func(j int) string { return fmt.Sprintf("line %d", lines[j]) })
+		for i := range ps {
+			if ps[i].Path != path {
+				ps[i].Msg = ps[i].Path + ": " + ps[i].Value + ": " + ps[i].Msg
+			}
+			ps[i].Path, ps[i].Value = path, v
+		}
+		return ps
 	case []any:
 		pts := make([][2]float64, 0, len(v))
 		for j, e := range v {
@@ -57,7 +65,7 @@ func (s *Site) resolveHorizon(path, dir string) []FieldError {
 			}
 			pts = append(pts, p)
 		}
-		return s.setSkyline(path, pts)
+		return s.setSkyline(path, pts, nil)
 	}
 	return []FieldError{{Path: path, Value: showValue(s.HorizonValue), Msg: "must be a number, a list of [azimuth, altitude] points or a CSV file name",
 		Hint: "e.g. horizon: 1.5, or horizon: [[0, 2.5], [90, 8]]"}}
@@ -85,14 +93,22 @@ func pointOf(e any) ([2]float64, bool) {
 }
 
 // setSkyline checks the points (azimuth 0..360, 360 being 0, distinct;
-// altitude within MinHorizon..MaxHorizon), sorts them and sets Skyline.
-func (s *Site) setSkyline(path string, pts [][2]float64) []FieldError {
+// altitude within MinHorizon..MaxHorizon), sorts them and sets Skyline. A
+// problem's path is path[j] for the point j, or, with name, name(j) ("line
+// 4" of a file).
+func (s *Site) setSkyline(path string, pts [][2]float64, name func(j int) string) []FieldError {
 	if len(pts) == 0 {
 		return []FieldError{{Path: path, Value: "[]", Msg: "an empty skyline", Hint: "give at least one [azimuth, altitude] point, or a number"}}
 	}
+	pointAt := func(j int) string {
+		if name != nil {
+			return name(j)
+		}
+		return fmt.Sprintf("%s[%d]", path, j)
+	}
 	seen := map[float64]int{}
 	for j, p := range pts {
-		at := fmt.Sprintf("%s[%d]", path, j)
+		at := pointAt(j)
 		if !(p[0] >= 0 && p[0] <= 360) {
 			return []FieldError{{Path: at, Value: fmt.Sprintf("[%s, %s]", ftoa(p[0]), ftoa(p[1])), Msg: "azimuth must be within 0..360", Hint: "degrees from the north through the east: 90 is east, 180 south"}}
 		}
@@ -104,7 +120,7 @@ func (s *Site) setSkyline(path string, pts [][2]float64) []FieldError {
 			az = 0
 		}
 		if k, dup := seen[az]; dup {
-			return []FieldError{{Path: at, Value: fmt.Sprintf("[%s, %s]", ftoa(p[0]), ftoa(p[1])), Msg: fmt.Sprintf("azimuth %s given twice (also %s[%d]; 0 and 360 are the same)", ftoa(az), path, k), Hint: "one altitude per direction"}}
+			return []FieldError{{Path: at, Value: fmt.Sprintf("[%s, %s]", ftoa(p[0]), ftoa(p[1])), Msg: fmt.Sprintf("azimuth %s given twice (also %s; 0 and 360 are the same)", ftoa(az), pointAt(k)), Hint: "one altitude per direction"}}
 		}
 		seen[az] = j
 		pts[j][0] = az
@@ -114,18 +130,19 @@ func (s *Site) setSkyline(path string, pts [][2]float64) []FieldError {
 	return nil
 }
 
-// readSkylineCSV reads "azimuth,altitude" lines.
-func readSkylineCSV(name string) ([][2]float64, error) {
+// readSkylineCSV reads "azimuth,altitude" lines: the points and the line
+// of each in the file.
+func readSkylineCSV(name string) ([][2]float64, []int, error) {
 	f, err := os.Open(name)
 	if err != nil {
 		if errors.Is(err, os.ErrNotExist) {
-			return nil, fmt.Errorf("no such skyline file (looked for %s)", name)
+			return nil, nil, fmt.Errorf("no such skyline file (looked for %s)", name)
 		}
 		var pe *fs.PathError
 		if errors.As(err, &pe) {
 			err = pe.Err
 		}
-		return nil, fmt.Errorf("cannot read the skyline file %s: %v", name, err)
+		return nil, nil, fmt.Errorf("cannot read the skyline file %s: %v", name, err)
 	}
 	defer f.Close()
 	r := csv.NewReader(f)
@@ -133,28 +150,30 @@ func readSkylineCSV(name string) ([][2]float64, error) {
 	r.FieldsPerRecord = -1
 	r.TrimLeadingSpace = true
 	var pts [][2]float64
-	for line := 1; ; line++ {
+	var lines []int
+	for first := true; ; first = false {
 		rec, err := r.Read()
 		if err == io.EOF {
 			break
 		}
 		if err != nil {
-			return nil, fmt.Errorf("not CSV: %v", err)
+			return nil, nil, fmt.Errorf("not CSV: %v", err)
 		}
+		line, _ := r.FieldPos(0) // comments and blank lines counted
 		if len(rec) != 2 {
-			return nil, fmt.Errorf("record %d: %d fields, want azimuth,altitude", line, len(rec))
+			return nil, nil, fmt.Errorf("line %d: %d fields, want azimuth,altitude", line, len(rec))
 		}
 		a, err1 := strconv.ParseFloat(strings.TrimSpace(rec[0]), 64)
 		b, err2 := strconv.ParseFloat(strings.TrimSpace(rec[1]), 64)
 		if err1 != nil || err2 != nil {
-			if line == 1 && len(pts) == 0 {
+			if first {
 				continue // a header
 			}
-			return nil, fmt.Errorf("record %d: %q is not two numbers", line, strings.Join(rec, ","))
+			return nil, nil, fmt.Errorf("line %d: %q is not two numbers", line, strings.Join(rec, ","))
 		}
-		pts = append(pts, [2]float64{a, b})
+		pts, lines = append(pts, [2]float64{a, b}), append(lines, line)
 	}
-	return pts, nil
+	return pts, lines, nil
 }
 
 // HorizonFromText reads a horizon written on a command line (flag names

@@ -372,8 +372,42 @@ func CompareEntries(a, b *Entry) int {
 // date), so it finds the runs and merges them as indices, then moves each
 // entry once: entries are large, and moving them dominated the sort.
 func sortEntries(es []Entry) []Entry {
-	cmp := func(i, j int32) int { return CompareEntries(&es[i], &es[j]) }
 	n := int32(len(es))
+	if n < 2 {
+		return es
+	}
+	// CompareEntries on a copy of what it reads first, side by side
+	keys := sortKeys.get(int(n))[:n]
+	defer sortKeys.put(keys)
+	for i := range es {
+		e := &es[i]
+		keys[i] = sortKey{date: e.Date.Unix(), dateNs: int32(e.Date.Nanosecond()), start: e.Start.Unix(), startNs: int32(e.Start.Nanosecond()), allDay: e.AllDay}
+	}
+	cmp := func(i, j int32) int {
+		a, b := &keys[i], &keys[j]
+		switch {
+		case a.date != b.date:
+			return compareInt(a.date, b.date)
+		case a.dateNs != b.dateNs:
+			return compareInt(int64(a.dateNs), int64(b.dateNs))
+		case a.allDay != b.allDay:
+			if a.allDay {
+				return -1
+			}
+			return 1
+		case a.allDay:
+			if c := AllDayOrder(es[i].Kind, es[i].Title, es[j].Kind, es[j].Title); c != 0 {
+				return c
+			}
+		}
+		switch {
+		case a.start != b.start:
+			return compareInt(a.start, b.start)
+		case a.startNs != b.startNs:
+			return compareInt(int64(a.startNs), int64(b.startNs))
+		}
+		return strings.Compare(es[i].UID, es[j].UID)
+	}
 	ends := []int32{} // the end of each run but the last
 	for i := int32(1); i < n; i++ {
 		if cmp(i-1, i) > 0 {
@@ -384,7 +418,9 @@ func sortEntries(es []Entry) []Entry {
 		return es // in order already
 	}
 	ends = append(ends, n)
-	idx, tmp := make([]int32, n), make([]int32, n)
+	idx, tmp := sortIndices.get(int(n))[:n], sortIndices.get(int(n))[:n]
+	defer sortIndices.put(idx)
+	defer sortIndices.put(tmp)
 	for i := range idx {
 		idx[i] = int32(i)
 	}
@@ -436,6 +472,30 @@ func sortEntries(es []Entry) []Entry {
 		}
 	}
 	return es
+}
+
+// sortKey is what CompareEntries reads of an entry before its kind, title
+// and UID: its Date and Start as seconds and nanoseconds, and AllDay.
+type sortKey struct {
+	date, start     int64
+	dateNs, startNs int32
+	allDay          bool
+}
+
+var (
+	sortKeys    slicePool[sortKey]
+	sortIndices slicePool[int32]
+)
+
+// compareInt is cmp.Compare for int64.
+func compareInt(a, b int64) int {
+	switch {
+	case a < b:
+		return -1
+	case a > b:
+		return 1
+	}
+	return 0
 }
 
 // summaries adds one all-day entry per date: sunrise, sunset, day length and

@@ -38,7 +38,18 @@ type daylight struct {
 	touched          bool
 }
 
-// daylights returns, for each local date first..last, the light above alt.
+// lightSpan is a period of light: from r to s.
+type lightSpan struct{ r, s time.Time }
+
+var (
+	// lightSpans and daylightBuffers hold the scratch slices of
+	// daylights and lighting, for the next feed's.
+	lightSpans      slicePool[lightSpan]
+	daylightBuffers slicePool[daylight]
+)
+
+// daylights returns, for each local date first..last, the light above alt;
+// the caller gives the slice back to daylightBuffers when done with it.
 func (c *collector) daylights(alt float64) ([]daylight, error) {
 	th, err := c.threshold(alt)
 	if err != nil {
@@ -46,14 +57,14 @@ func (c *collector) daylights(alt float64) ([]daylight, error) {
 	}
 	// the periods above alt; an open end far away
 	never := time.Unix(1<<40, 0).UTC()
-	type span struct{ r, s time.Time }
-	var spans []span
+	spans := lightSpans.get(len(th.xs)/2 + 2)
+	defer func() { lightSpans.put(spans) }()
 	if th.upFirst {
-		spans = append(spans, span{s: never})
+		spans = append(spans, lightSpan{s: never})
 	}
 	for _, x := range th.xs {
 		if x.Direction == astro.Rising {
-			spans = append(spans, span{r: x.Time, s: never})
+			spans = append(spans, lightSpan{r: x.Time, s: never})
 		} else if len(spans) > 0 && spans[len(spans)-1].s.Equal(never) {
 			spans[len(spans)-1].s = x.Time
 		}
@@ -63,7 +74,7 @@ func (c *collector) daylights(alt float64) ([]daylight, error) {
 		return nil, err
 	}
 	starts := c.dayStarts()
-	out := make([]daylight, 0, len(starts)-3)
+	out := daylightBuffers.get(len(starts) - 3)
 	j := 0
 	for i := 0; i+3 < len(starts); i++ {
 		start, end := starts[i+1], starts[i+2]
@@ -130,6 +141,7 @@ func (c *collector) lighting(k config.Kind) error {
 	if err != nil {
 		return err
 	}
+	defer daylightBuffers.put(days)
 	needs := make([]bool, len(days))
 	for i, dl := range days {
 		// a date whose only light is the date before's day, past midnight,
@@ -322,9 +334,9 @@ func limitsOf(spec config.KindSpec) lampLimits {
 // time at or before the period's end, and the first latest_off clock time
 // after its start, and marks a period it cuts Clipped.
 func (c *collector) clip(e *Event, lim lampLimits) {
-	loc := c.p.Location
+	z := c.zone()
 	if lim.hasOn && e.Part != partEvening {
-		day := localDay(e.End, loc)
+		day := z.day(e.End)
 		t := c.clockOnDay(day, lim.on)
 		if !t.Before(e.End) {
 			t = c.clockOnDay(day-1, lim.on)
@@ -334,7 +346,7 @@ func (c *collector) clip(e *Event, lim lampLimits) {
 		}
 	}
 	if lim.hasOff && e.Part != partMorning {
-		day := localDay(e.Start, loc)
+		day := z.day(e.Start)
 		t := c.clockOnDay(day, lim.off)
 		if !t.After(e.Start) {
 			t = c.clockOnDay(day+1, lim.off)
@@ -354,10 +366,12 @@ func (c *collector) clockOnDay(day int64, clock time.Duration) time.Time {
 	starts := c.dayStarts()
 	if j := int(day-c.first.Unix()/secondsPerDay) + 1; j >= 0 && j < len(starts) {
 		s := starts[j]
-		t := s.Add(clock)
-		from, to := t.In(c.p.Location).ZoneBounds()
-		if (from.IsZero() || !from.After(s.Add(-24*time.Hour))) && (to.IsZero() || to.After(s.Add(48*time.Hour))) {
-			return t
+		// the zone's period from a day before s: it must last past two
+		// days after s
+		z := c.zone()
+		u := s.Unix()
+		if z.at(u - secondsPerDay); z.to > u+2*secondsPerDay {
+			return s.Add(clock)
 		}
 	}
 	return clockOn(time.Unix(day*secondsPerDay, 0).UTC(), clock, c.p.Location)
@@ -377,16 +391,22 @@ type shownClock struct {
 }
 
 func shownAt(t time.Time, z *zoneCache) shownClock {
-	ts, tm := ToSecond(t), ToMinute(t)
-	us := ts.Unix()
-	zone, off := z.at(us)
-	sec := daySeconds(us + off)
-	offM := off
-	if tm != ts {
-		_, offM = z.at(tm.Unix()) // a clock change may lie between the two
+	sec, ns := t.Unix(), int64(t.Nanosecond())
+	us := sec // ToSecond: up from 499.5 ms
+	if ns >= 499_500_000 {
+		us++
 	}
-	mins := daySeconds(tm.Unix()+offM) / 60
-	return shownClock{h: sec / 3600, m: sec / 60 % 60, s: sec % 60, hm: mins / 60, mm: mins % 60, zone: zone}
+	// ToMinute: to the millisecond, then to the minute, each half up; the
+	// zero time is a whole number of minutes before 1970
+	um := floorDiv(sec*1000+(ns+500_000)/1_000_000+30_000, 60_000) * 60
+	zone, off := z.at(us)
+	s := daySeconds(us + off)
+	offM := off
+	if um != us {
+		_, offM = z.at(um) // a clock change may lie between the two
+	}
+	mins := daySeconds(um+offM) / 60
+	return shownClock{h: s / 3600, m: s / 60 % 60, s: s % 60, hm: mins / 60, mm: mins % 60, zone: zone}
 }
 
 // daySeconds is the time of day, in seconds, of a count of seconds since
@@ -397,17 +417,6 @@ func daySeconds(u int64) int {
 		s += secondsPerDay
 	}
 	return int(s)
-}
-
-// localDay is the number of days since 1970-01-01 of t's local date.
-func localDay(t time.Time, loc *time.Location) int64 {
-	_, off := t.In(loc).Zone()
-	u := t.Unix() + int64(off)
-	d := u / secondsPerDay
-	if u%secondsPerDay < 0 {
-		d--
-	}
-	return d
 }
 
 // appendMinute appends the clock to the minute, "16:42".

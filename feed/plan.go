@@ -62,12 +62,13 @@ type planDate struct {
 // for both in one pass.
 func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed, first, last time.Time) ([]Entry, error) {
 	col := &collector{ctx: ctx, sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
+	// the collector's events are scratch: entries copies each into an
+	// entry, the plans' times copy those they keep (kindTimes), and
+	// nothing else sees the collector
+	col.events = scratchEvents.get(0)
+	defer func() { scratchEvents.put(col.events) }()
 	if len(f.Plans) == 0 {
-		// the collector's events are scratch here: entries copies each
-		// into an entry and nothing else sees the collector
-		col.events = scratchEvents.get(0)
 		es, err := sky.entries(col, s, f.ID, f.Kinds, 0)
-		scratchEvents.put(col.events)
 		if err != nil {
 			return nil, err
 		}
@@ -175,7 +176,9 @@ func (sky *Sky) allPlanDates(col *collector, parsed []*plan) (planDates, error) 
 func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parsed []*plan, kinds []config.KindSpec, pd planDates, out []Entry) ([]Entry, error) {
 	last := col.last
 	col.spec, col.maxLit = config.KindSpec{}, 0
-	w := entryWriter{feedID: feedID, site: newSiteInfo(s), seen: map[string]int{}, noted: map[string]bool{}, last: last, out: out}
+	w := entryWriter{feedID: feedID, site: newSiteInfo(s), noted: map[string]bool{}, last: last, out: out}
+	w.text = textBuffers.get(pd.total * textPerEntry)
+	defer func() { textBuffers.put(w.text) }()
 	dates, uses := pd.dates, pd.uses
 	// the times of every kind the plans start or end at; an end may be on
 	// the day after the last date
@@ -197,15 +200,25 @@ func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parse
 		}
 		times[ks.Kind] = kt
 	}
+	cats := []string{"Plan"}
 	for i, pl := range parsed {
 		w.alarm = pl.alarm
 		pt := newPlanText(pl, w.site)
+		// a plan's UID keys differ by date; they are counted in seen only
+		// when another plan has the same title and date rule
+		pt.counted = true
+		for j, o := range parsed {
+			if j != i && o.cfg.Title == pl.cfg.Title && o.cfg.Date == pl.cfg.Date {
+				pt.counted = false
+			}
+		}
 		for _, pd := range dates[i] {
-			if err := w.plan(pl, pt, pd, times); err != nil {
+			if err := w.plan(pl, pt, pd, times, cats); err != nil {
 				return nil, fmt.Errorf("plan %q: %w", pl.cfg.Title, err)
 			}
 		}
 	}
+	w.flushText()
 	return w.out, nil
 }
 
@@ -480,6 +493,7 @@ type planText struct {
 	startName  string // the start event in words, "astronomical dusk"
 	endName    string
 	where      string
+	counted    bool // the plan's dates are each once in its UID keys: no need to count them in seen
 }
 
 func newPlanText(pl *plan, site *siteInfo) *planText {
@@ -505,20 +519,15 @@ func newPlanText(pl *plan, site *siteInfo) *planText {
 	return pt
 }
 
-// plan writes the entry of one plan on one date.
-func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config.Kind]*kindTimes) error {
-	loc := w.site.TimeZone.Location
+// plan writes the entry of one plan on one date. Its description and UID
+// go to text (see flushText).
+func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config.Kind]*kindTimes, cats []string) error {
+	loc, z := w.site.TimeZone.Location, w.site.zone
 	d := pd.date
-	en := Entry{
-		UID:        w.uid(KindPlan, pl.cfg.Title, pl.cfg.Date, d.Format(time.DateOnly)),
-		Kind:       KindPlan,
-		Title:      pl.cfg.Title,
-		Categories: []string{"Plan"},
-		Date:       d,
-		Alarm:      w.alarm,
-	}
-	var buf [512]byte // on the stack: the text is copied once, into the string
-	b := append(buf[:0], pt.lead...)
+	w.out = append(w.out, Entry{Kind: KindPlan, Title: pl.cfg.Title, Categories: cats, Date: d, Alarm: w.alarm})
+	en := &w.out[len(w.out)-1]
+	from := len(w.text)
+	b := append(w.text, pt.lead...)
 	if pd.anchor != nil {
 		b = append(append(append(append(b, "Date: "...), pt.rule...), " ("...), inText(pd.anchor.Kind)...)
 		b = pd.anchor.Start.In(loc).AppendFormat(append(b, ' '), "Mon 2 Jan 2006 15:04 MST")
@@ -527,11 +536,23 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 	allDay := func() {
 		en.AllDay, en.Start, en.End = true, d, d.AddDate(0, 0, 1)
 	}
+	done := func(b []byte) error {
+		sp := textSpan{entry: len(w.out) - 1, from: from, to: len(b), uid: len(b)}
+		key := append(append(append(append(append(w.buf[:0], w.feedID...), '|'), KindPlan...), '|'), pl.cfg.Title...)
+		key = appendDate(append(append(append(key, '|'), pl.cfg.Date...), '|'), d)
+		if pt.counted {
+			key = append(key, "|0"...)
+			w.buf = key
+			w.text = appendHash(b, key)
+		} else {
+			w.text = w.appendUID(b, key)
+		}
+		w.spans = append(w.spans, sp)
+		return nil
+	}
 	if pl.start == nil {
 		allDay()
-		en.Description = string(append(append(append(b, "All day at "...), pt.where...), '.'))
-		w.out = append(w.out, en)
-		return nil
+		return done(append(append(append(b, "All day at "...), pt.where...), '.'))
 	}
 	start, ok, err := planTime(*pl.start, d, loc, times)
 	if err != nil {
@@ -548,12 +569,10 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 			t, _ := describeNote(w.site, n)
 			b = append(append(append(b, " ("...), t...), ')')
 		}
-		en.Description = string(append(append(append(b, " at "...), pt.where...), '.'))
-		w.out = append(w.out, en)
-		return nil
+		return done(append(append(append(b, " at "...), pt.where...), '.'))
 	}
 	en.Start = start
-	b = append(append(append(b, "From "...), localClock(start, loc)...), pt.startWords...)
+	b = append(z.appendClock(append(b, "From "...), start), pt.startWords...)
 	b = append(b, skippedClock(*pl.start, start, loc)...)
 	switch {
 	case pl.end != nil:
@@ -573,11 +592,11 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 		en.End = start.Add(pl.cfg.For.D())
 	}
 	if !en.End.IsZero() {
-		b = append(append(b, " to "...), localClock(en.End, loc)...)
+		b = z.appendClock(append(b, " to "...), en.End)
 		if pl.end != nil {
 			b = append(append(b, pt.endWords...), skippedClock(*pl.end, en.End, loc)...)
 		}
-		if ed := localDate(en.End, loc); ed.After(d) {
+		if ed := z.date(en.End); ed.After(d) {
 			en.Facts.NextDay = true
 			b = append(ed.AppendFormat(append(b, " the next day ("...), "Mon 2 Jan"), ')')
 		}
@@ -588,9 +607,7 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 	if !pl.start.IsClock || (pl.end != nil && !pl.end.IsClock) {
 		b = append(append(b, '\n'), cautionLegal...)
 	}
-	en.Description = string(b)
-	w.out = append(w.out, en)
-	return nil
+	return done(b)
 }
 
 // planTime is the instant of a plan time on the local date d: the clock

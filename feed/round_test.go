@@ -30,3 +30,45 @@ func TestToSecondTwoSteps(t *testing.T) {
 		}
 	}
 }
+
+// TestShownAt: a lamp entry's clock to the second and to the minute are
+// those of ToSecond and ToMinute in the zone, at the halfway values and
+// across the clock changes of a zone with summer time.
+func TestShownAt(t *testing.T) {
+	loc, err := time.LoadLocation("Europe/Vienna")
+	if err != nil {
+		t.Fatal(err)
+	}
+	z := newZoneCache(loc)
+	r := rand.New(rand.NewSource(3))
+	var ts []time.Time
+	for _, base := range []time.Time{time.Date(2027, 3, 28, 0, 59, 29, 499_499_999, time.UTC), time.Date(2027, 10, 31, 0, 59, 59, 500_000_000, time.UTC),
+		time.Date(1969, 12, 31, 23, 59, 29, 499_500_000, time.UTC)} {
+		for _, d := range []time.Duration{0, time.Nanosecond, 500 * time.Microsecond, 30 * time.Second, -time.Hour, time.Minute} {
+			ts = append(ts, base.Add(d))
+		}
+	}
+	for range 2000 {
+		ts = append(ts, time.Unix(r.Int63n(4e9)-1e9, r.Int63n(1e9)).UTC())
+	}
+	for _, u := range ts {
+		got := shownAt(u, z)
+		s, m := ToSecond(u).In(loc), ToMinute(u).In(loc)
+		zone, _ := s.Zone()
+		if got.h != s.Hour() || got.m != s.Minute() || got.s != s.Second() || got.zone != zone || got.hm != m.Hour() || got.mm != m.Minute() {
+			t.Fatalf("shownAt(%v) = %+v, want %s and %s", u, got, s.Format("15:04:05 MST"), m.Format("15:04"))
+		}
+	}
+}
+
+// TestAppendHM: the minute durations' fast path writes what the general
+// rule does (appendDuration), on both sides of each rounding.
+func TestAppendHM(t *testing.T) {
+	for _, d := range []time.Duration{0, 29 * time.Second, 30 * time.Second, 59*time.Minute + 29*time.Second,
+		59*time.Minute + 30*time.Second, time.Hour, 9*time.Hour + 5*time.Minute, 23*time.Hour + 59*time.Minute + 45*time.Second,
+		36 * time.Hour, 101*time.Hour + 7*time.Minute, -5 * time.Minute} {
+		if got, want := string(appendHM([]byte("x"), d)), "x"+string(appendDuration(nil, d, time.Minute, false)); got != want {
+			t.Errorf("appendHM(%v) = %q, want %q", d, got, want)
+		}
+	}
+}

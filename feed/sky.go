@@ -395,6 +395,15 @@ type collector struct {
 	spec         config.KindSpec // the options of the kind being added (lighting)
 
 	noonsByDate map[time.Time]astro.Transit // the Sun's transits by local date, computed once (noonOf)
+	zc          *zoneCache                  // see zone
+}
+
+// zone returns the collector's cache of its zone's periods.
+func (c *collector) zone() *zoneCache {
+	if c.zc == nil {
+		c.zc = newZoneCache(c.p.Location)
+	}
+	return c.zc
 }
 
 func (c *collector) inRange(d time.Time) bool {
@@ -1067,7 +1076,7 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 			case !m.high: // in through the low bound, out through it again
 				part = "all-day"
 			}
-			d := localDate(start, c.p.Location)
+			d := c.zone().date(start)
 			if c.inRange(d) {
 				c.events = append(c.events, Event{Kind: k, Start: start, End: m.t, Date: d, Part: part, Low: low, High: high})
 				seen[d.Sub(c.first)/(24*time.Hour)] = true

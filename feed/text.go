@@ -227,7 +227,18 @@ func appendDuration(b []byte, d, unit time.Duration, trim bool) []byte {
 func hm(d time.Duration) string { return Length(d, time.Minute) }
 
 // appendHM appends hm(d) to b.
-func appendHM(b []byte, d time.Duration) []byte { return appendDuration(b, d, time.Minute, false) }
+func appendHM(b []byte, d time.Duration) []byte {
+	if d < 0 {
+		return appendDuration(b, d, time.Minute, false)
+	}
+	d = d.Round(time.Minute)
+	h, m := int64(d/time.Hour), int(d%time.Hour/time.Minute)
+	if h == 0 {
+		return append(strconv.AppendInt(b, int64(m), 10), " min"...)
+	}
+	b = append(strconv.AppendInt(b, h, 10), " h "...)
+	return append(append(b, byte('0'+m/10), byte('0'+m%10)), " min"...)
+}
 
 // Change formats a signed day-length change as "+1 min 30 s", "−2 min 05 s"
 // or "−32 s".

@@ -190,3 +190,18 @@ func (q AdhocQuery) skylineText() string {
 	}
 	return strings.Join(items, ",")
 }
+
+// horizonWords says, for the table page's heading, the horizon the times
+// are for when it is not flat: ", horizon 2°", ", skyline 0:3, 90:12, 180:1"
+// (azimuth:altitude), or ", skyline of 72 points" when the list is long.
+func (q AdhocQuery) horizonWords() string {
+	switch {
+	case len(q.Skyline) > 8:
+		return fmt.Sprintf(", skyline of %d points", len(q.Skyline))
+	case len(q.Skyline) > 0:
+		return ", skyline " + strings.ReplaceAll(q.skylineText(), ",", ", ") + " (azimuth:altitude)"
+	case q.Horizon != 0:
+		return ", horizon " + strconv.FormatFloat(q.Horizon, 'f', -1, 64) + "°"
+	}
+	return ""
+}

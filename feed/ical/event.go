@@ -213,17 +213,24 @@ func (w *writer) textLine(b []byte, prefix, value string) []byte {
 // cleanTextLine is textLine for a value not yet cleaned: it is cleaned
 // (cleanText) as it is escaped, in one pass, and the line is left out, as
 // textLine's caller leaves it out, when nothing is left of the value.
+//
+// The line is escaped into w.scratch and folded from there into b, so that
+// a long line is copied once, not written to b, copied out and folded back.
 func (w *writer) cleanTextLine(b []byte, prefix, value string) []byte {
-	start := len(b)
-	b, ok := escapeCleanText(append(b, prefix...), value)
+	line, ok := escapeCleanText(append(w.scratch[:0], prefix...), value)
 	if !ok {
 		value = normaliseText(value)
 		if value == "" {
-			return b[:start]
+			w.scratch = line
+			return b
 		}
-		b = escapeText(b[:start+len(prefix)], value)
+		line = escapeText(line[:len(prefix)], value)
 	}
-	return w.endValidLine(b, start)
+	w.scratch = line
+	if len(line) <= w.cfg.MaxLength {
+		return append(append(b, line...), w.cfg.NewLine...)
+	}
+	return foldCuts(b, line, w.cfg.MaxLength, w.cfg.NewLine, validCut)
 }
 
 // endLine ends the unfolded content line b[start:] as the library's
@@ -235,16 +242,6 @@ func (w *writer) endLine(b []byte, start int) []byte {
 	}
 	w.scratch = append(w.scratch[:0], b[start:]...)
 	return libraryFold(b[:start], w.scratch, w.cfg.MaxLength, w.cfg.NewLine)
-}
-
-// endValidLine is endLine for a line known to be valid UTF-8 (a cleaned
-// text), which need not be checked again before it is folded.
-func (w *writer) endValidLine(b []byte, start int) []byte {
-	if len(b)-start <= w.cfg.MaxLength {
-		return append(b, w.cfg.NewLine...)
-	}
-	w.scratch = append(w.scratch[:0], b[start:]...)
-	return foldCuts(b[:start], w.scratch, w.cfg.MaxLength, w.cfg.NewLine, validCut)
 }
 
 // endRawLine ends the unfolded pre-formatted line b[start:] as
@@ -280,7 +277,7 @@ func escapeCleanText(b []byte, s string) ([]byte, bool) {
 	for {
 		for i+8 <= len(s) {
 			x := load64(s, i)
-			if m := escapeMask(x) | cleanMask(x); m != 0 {
+			if m := escapeCleanMask(x); m != 0 {
 				i += bits.TrailingZeros64(m) / 8
 				break
 			}
@@ -460,6 +457,14 @@ func hasByte(x uint64, c byte) bool { return hasLess(x^(ones*uint64(c)), 1) }
 func escapeMask(x uint64) uint64 {
 	a, b, c, d := x^(ones*'\\'), x^(ones*';'), x^(ones*','), x^(ones*'\n')
 	return ((a-ones)&^a | (b-ones)&^b | (c-ones)&^c | (d-ones)&^d) & highs
+}
+
+// escapeCleanMask is escapeMask(x) | cleanMask(x) in fewer steps (LF is
+// found as a control character): its lowest set bit is in the first octet
+// of x that escapeText escapes or cleanText looks at octet by octet.
+func escapeCleanMask(x uint64) uint64 {
+	a, b, c, d := x^(ones*'\\'), x^(ones*';'), x^(ones*','), x^(ones*0x7f)
+	return (x | (x-ones*' ')&^x | (a-ones)&^a | (b-ones)&^b | (c-ones)&^c | (d-ones)&^d) & highs
 }
 
 // cleanMask is escapeMask for cleanText's octet-wise path: its lowest set

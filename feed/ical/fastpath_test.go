@@ -191,6 +191,9 @@ func TestWordTests(t *testing.T) {
 		if (cleanMask(x) != 0) != clean {
 			t.Fatalf("cleanMask(% x) != 0 is %v", w, !clean)
 		}
+		if got, want := escapeCleanMask(x), escapeMask(x)|cleanMask(x); bits.TrailingZeros64(got) != bits.TrailingZeros64(want) {
+			t.Fatalf("escapeCleanMask(% x) points at octet %d, want %d", w, bits.TrailingZeros64(got)/8, bits.TrailingZeros64(want)/8)
+		}
 	}
 }
 

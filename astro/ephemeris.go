@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"math"
 	"runtime"
+	"slices"
 	"sync"
 	"sync/atomic"
 	"time"
@@ -317,6 +318,13 @@ func (e *Ephemeris) SunCrossings(o Observer, altitude float64, from, to time.Tim
 // roughly halves the cost of a site's daily events. The result has one
 // slice per altitude, in the order given.
 func (e *Ephemeris) SunCrossingsMany(o Observer, altitudes []float64, from, to time.Time) ([][]Crossing, error) {
+	return e.AppendSunCrossings(nil, o, altitudes, from, to)
+}
+
+// AppendSunCrossings is SunCrossingsMany writing into dst: dst[i][:0]
+// receives the crossings of altitudes[i] (dst is lengthened as needed), so
+// that a caller computing span after span reuses its slices.
+func (e *Ephemeris) AppendSunCrossings(dst [][]Crossing, o Observer, altitudes []float64, from, to time.Time) ([][]Crossing, error) {
 	if err := o.Validate(); err != nil {
 		return nil, err
 	}
@@ -330,17 +338,26 @@ func (e *Ephemeris) SunCrossingsMany(o Observer, altitudes []float64, from, to t
 	}
 	st := newSite(o)
 	a, b := unixSeconds(from), unixSeconds(to)
-	ext := e.sun.extrema(st, a, b)
+	sc := crossingScratch.Get().(*scratch)
+	defer crossingScratch.Put(sc)
+	sc.ext = e.sun.appendExtrema(sc.ext[:0], st, a, b)
+	ext := sc.ext
 	sines := make([]float64, len(altitudes))
-	bufs := make([][]crossing, len(altitudes))
+	for len(sc.bufs) < len(altitudes) {
+		sc.bufs = append(sc.bufs, nil)
+	}
+	bufs := sc.bufs[:len(altitudes)]
 	for i, h := range altitudes {
 		sines[i] = math.Sin(h * deg2rad)
-		bufs[i] = make([]crossing, 0, len(ext)/2+2)
+		bufs[i] = bufs[i][:0]
 	}
 	e.sun.crossingsMany(st, ext, sines, a, b, bufs)
-	out := make([][]Crossing, len(altitudes))
+	for len(dst) < len(altitudes) {
+		dst = append(dst, nil)
+	}
+	dst = dst[:len(altitudes)]
 	for i, buf := range bufs {
-		cs := make([]Crossing, 0, len(buf))
+		cs := slices.Grow(dst[i][:0], len(buf))
 		for _, c := range buf {
 			t := timeFromUnix(c.t)
 			if t.Before(from) || !t.Before(to) {
@@ -352,10 +369,19 @@ func (e *Ephemeris) SunCrossingsMany(o Observer, altitudes []float64, from, to t
 			}
 			cs = append(cs, Crossing{Time: t, Direction: d})
 		}
-		out[i] = cs
+		dst[i] = cs
 	}
-	return out, nil
+	return dst, nil
 }
+
+// scratch is the working memory of AppendSunCrossings, kept between calls
+// (crossingScratch).
+type scratch struct {
+	ext  []extremum
+	bufs [][]crossing
+}
+
+var crossingScratch = sync.Pool{New: func() any { return new(scratch) }}
 
 // Transit is an upper meridian transit of the Sun (solar noon).
 type Transit struct {

@@ -314,10 +314,15 @@ func (tr *track) passageTol(st *site, from, target, tol float64) float64 {
 // alternating upper and lower, so that every instant of [a, b] lies between
 // two of them.
 func (tr *track) extrema(st *site, a, b float64) []extremum {
+	return tr.appendExtrema(nil, st, a, b)
+}
+
+// appendExtrema is extrema appending to out.
+func (tr *track) appendExtrema(out []extremum, st *site, a, b float64) []extremum {
 	lo, hi := tr.coverage()
 	a = max(a-secondsPerDay, lo)
 	b = min(b+secondsPerDay, hi)
-	out := make([]extremum, 0, int((b-a)/(tr.step/2))+4)
+	out = slices.Grow(out, int((b-a)/(tr.step/2))+4)
 	t := a
 	H := math.Mod(tr.hourAngle(st, t), 2*math.Pi)
 	if H < 0 {

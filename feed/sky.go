@@ -234,6 +234,7 @@ type buffers struct {
 	events, merged []Event
 	notes, mnotes  []Note
 	keys           []int64
+	crossings      [][]astro.Crossing // the thresholds' crossings (collector.prepare)
 }
 
 // eventsPerDate is about how many events specs give a date: one per kind,
@@ -306,7 +307,7 @@ func (s *Sky) eventsFor(ctx context.Context, p Place, specs []config.KindSpec, f
 		return nil, nil, fmt.Errorf("feed: date range ends (%s) before it starts (%s)",
 			last.Format(time.DateOnly), first.Format(time.DateOnly))
 	}
-	c := &collector{ctx: ctx, sky: s, p: p, first: first, last: last, events: buf.events[:0], notes: buf.notes[:0]}
+	c := &collector{ctx: ctx, sky: s, p: p, first: first, last: last, events: buf.events[:0], notes: buf.notes[:0], xsBuf: &buf.crossings}
 	// room for about every event at once: grown step by step, the buffer
 	// would be copied a dozen times
 	days := int(last.Sub(first).Hours()/24) + 1
@@ -393,6 +394,9 @@ type collector struct {
 	thresholds   map[float64]*threshold
 	maxLit       float64         // dark-window: the Moon's largest illuminated fraction still dark
 	spec         config.KindSpec // the options of the kind being added (lighting)
+	// xsBuf, when set, holds slices the first pass of prepare fills (a
+	// chunk's buffers, reused from chunk to chunk)
+	xsBuf *[][]astro.Crossing
 
 	noonsByDate map[time.Time]astro.Transit // the Sun's transits by local date, computed once (noonOf)
 	zc          *zoneCache                  // see zone
@@ -558,9 +562,16 @@ func (c *collector) prepare(alts ...float64) error {
 	}
 	from, to := c.thresholdSpan()
 	o := c.p.Observer
-	lists, err := c.sky.eph.SunCrossingsMany(o, missing, from, to)
+	var dst [][]astro.Crossing
+	if c.xsBuf != nil {
+		dst = *c.xsBuf
+	}
+	lists, err := c.sky.eph.AppendSunCrossings(dst, o, missing, from, to)
 	if err != nil {
 		return err
+	}
+	if c.xsBuf != nil {
+		*c.xsBuf, c.xsBuf = lists, nil // a later pass must not overwrite these
 	}
 	h0, err := c.sky.eph.SunAltitude(o, from)
 	if err != nil {

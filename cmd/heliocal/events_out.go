@@ -91,7 +91,9 @@ const jsonFlush = 256 << 10
 
 func (j *jsonSink) chunk(c feed.Chunk) error {
 	if j.events == 0 && j.buf == nil {
-		j.buf = append(j.buf, "{\n  \"events\": ["...)
+		// room for what is written between flushes: an event object
+		// takes a few hundred bytes
+		j.buf = append(make([]byte, 0, jsonFlush+16<<10), "{\n  \"events\": ["...)
 	}
 	loc := j.site.TimeZone.Location
 	next := astro.DateStart(loc, c.Last.Year(), c.Last.Month(), c.Last.Day()+1)

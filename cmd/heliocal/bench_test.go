@@ -8,6 +8,7 @@ import (
 	"log/slog"
 	"net/http"
 	"net/http/httptest"
+	"os"
 	"testing"
 	"time"
 
@@ -130,6 +131,7 @@ func benchAdhocFeed(b *testing.B, skyline [][2]float64) {
 // time per request (garbage collection included), which a busy machine
 // disturbs less than the wall time.
 func BenchmarkAdhocRequest(b *testing.B) {
+	defer startServeGC(os.LookupEnv)() // the collector's policy of heliocal serve (GOGC=100 in the environment: the runtime's default)
 	set := func() adhocSettings { return adhocSettings{layout: newLayout(""), refresh: 24 * time.Hour} }
 	srv, err := serve.New(serve.Options{
 		Logger:            slog.New(slog.DiscardHandler),

@@ -35,6 +35,7 @@ func freePort(t *testing.T) string {
 // ad-hoc feeds, schedule, shutdown) end to end over real HTTP on loopback.
 func TestServeDemo(t *testing.T) {
 	t.Chdir(t.TempDir())
+	gcBefore := gcPercent()
 	addr := freePort(t)
 	ctx, cancel := context.WithCancel(context.Background())
 	errOut := &lockedBuffer{}
@@ -70,6 +71,11 @@ func TestServeDemo(t *testing.T) {
 		time.Sleep(50 * time.Millisecond)
 	}
 
+	// The collector's policy while serving (no GOGC in the environment).
+	if err := awaitServeGCPercent(); err != nil {
+		t.Error(err)
+	}
+
 	resp, body := get("/feeds/fernhollow-sun.ics")
 	if resp.StatusCode != http.StatusOK || resp.Header.Get("Content-Type") != "text/calendar; charset=utf-8" {
 		t.Errorf("feed: %d %q", resp.StatusCode, resp.Header.Get("Content-Type"))
@@ -101,6 +107,9 @@ func TestServeDemo(t *testing.T) {
 		}
 	case <-time.After(30 * time.Second):
 		t.Fatal("serve did not shut down")
+	}
+	if got := gcPercent(); got != gcBefore {
+		t.Errorf("after serve the GC percent is %d, want %d as before", got, gcBefore)
 	}
 }
 

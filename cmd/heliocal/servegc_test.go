@@ -1,6 +1,7 @@
 package main
 
 import (
+	"fmt"
 	"runtime"
 	"runtime/debug"
 	"runtime/metrics"
@@ -33,23 +34,30 @@ func gcPercent() int {
 	return int(s[0].Value.Uint64())
 }
 
+// awaitServeGCPercent collects until the GC percent in force is the one
+// the serve policy sets for the live heap, or fails after 10 s.
+func awaitServeGCPercent() error {
+	want := func() int { return gcHeadroomPercent(liveHeap(), serveGCHeadroom) }
+	for deadline := time.Now().Add(10 * time.Second); gcPercent() != want(); {
+		if time.Now().After(deadline) {
+			return fmt.Errorf("after collections the GC percent is %d, want %d (live heap %d bytes)", gcPercent(), want(), liveHeap())
+		}
+		runtime.GC()
+		time.Sleep(10 * time.Millisecond) // the hook runs on the cleanup goroutine
+	}
+	return nil
+}
+
 // TestServeGCPolicy: while a server runs, every collection sets the GC
 // percent from the live heap it found; the percent before comes back when
 // the server stops; a GOGC in the environment is left alone.
 func TestServeGCPolicy(t *testing.T) {
 	before := gcPercent()
 	stop := startServeGC(func(string) (string, bool) { return "", false })
-	want := func() int { return gcHeadroomPercent(liveHeap(), serveGCHeadroom) }
-	other := 3000 // a percent the policy never sets
-	debug.SetGCPercent(other)
-	deadline := time.Now().Add(10 * time.Second)
-	for gcPercent() != want() {
-		if time.Now().After(deadline) {
-			stop()
-			t.Fatalf("after collections the GC percent is %d, want %d (live heap %d bytes)", gcPercent(), want(), liveHeap())
-		}
-		runtime.GC()
-		time.Sleep(10 * time.Millisecond) // the hook runs on the cleanup goroutine
+	debug.SetGCPercent(3000) // a percent the policy never sets
+	if err := awaitServeGCPercent(); err != nil {
+		stop()
+		t.Fatal(err)
 	}
 	stop()
 	stop() // a second call changes nothing

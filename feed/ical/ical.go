@@ -45,10 +45,10 @@
 //
 // Some widely used web calendars are reported to drop events from
 // subscriptions larger than about 1 MB (see MaxAdvisedSize). An event takes
-// 400 to 800 bytes (about 510 in BenchmarkMarshal, 750 with the catalogue's
-// longer descriptions), so 1 MB holds roughly 1,300 to 2,000 events: keep a
-// feed's window rolling and split feeds by kind rather than publishing years
-// of daily events in one file.
+// 350 to 750 bytes (about 470 in BenchmarkMarshal, 560 for the catalogue's
+// sunrise, sunset, civil twilight and golden hour), so 1 MB holds roughly
+// 1,400 to 2,800 events: keep a feed's window rolling and split feeds by
+// kind rather than publishing years of daily events in one file.
 package ical
 
 import (

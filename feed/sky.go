@@ -257,7 +257,7 @@ const maxRuns = 64
 // mergeByKey appends to out the items of xs in the order of key, equal
 // keys in the order of xs (stable), as sortByKey does, for xs made of a few
 // runs already in order (each kind appends its own run of events): the
-// runs are merged, each item moved once. keys is a scratch buffer. With
+// runs are merged through a heap of their next keys, each item moved once. keys is a scratch buffer. With
 // more than maxRuns runs it sorts (sortByKey).
 func mergeByKey[T any](xs []T, out []T, keys *[]int64, key func(*T) int64) []T {
 	n := len(xs)
@@ -277,26 +277,45 @@ func mergeByKey[T any](xs []T, out []T, keys *[]int64, key func(*T) int64) []T {
 	}
 	starts[runs] = n
 	var pos, end [maxRuns]int
+	var heap [maxRuns]int // runs by their next key (the earlier run on ties), least first
 	for r := range runs {
 		pos[r], end[r] = starts[r], starts[r+1]
+		heap[r] = r // the runs' first keys need not be in order: sift them
+	}
+	less := func(a, b int) bool {
+		ka, kb := ks[pos[a]], ks[pos[b]]
+		return ka < kb || ka == kb && a < b
+	}
+	down := func(i, m int) {
+		for {
+			c := 2*i + 1
+			if c >= m {
+				return
+			}
+			if c+1 < m && less(heap[c+1], heap[c]) {
+				c++
+			}
+			if !less(heap[c], heap[i]) {
+				return
+			}
+			heap[i], heap[c] = heap[c], heap[i]
+			i = c
+		}
+	}
+	m := runs
+	for i := m/2 - 1; i >= 0; i-- {
+		down(i, m)
 	}
 	out = slices.Grow(out, n)
-	for runs > 0 {
-		// the run whose next key is least, the earliest run on ties
-		best := 0
-		bk := ks[pos[0]]
-		for r := 1; r < runs; r++ {
-			if k := ks[pos[r]]; k < bk {
-				best, bk = r, k
-			}
+	for m > 0 {
+		r := heap[0]
+		out = append(out, xs[pos[r]])
+		pos[r]++
+		if pos[r] == end[r] {
+			m--
+			heap[0] = heap[m]
 		}
-		out = append(out, xs[pos[best]])
-		pos[best]++
-		if pos[best] == end[best] { // drop the run, keeping the others in order
-			copy(pos[best:runs], pos[best+1:runs])
-			copy(end[best:runs], end[best+1:runs])
-			runs--
-		}
+		down(0, m)
 	}
 	return out
 }

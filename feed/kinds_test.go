@@ -53,3 +53,33 @@ func TestDependencies(t *testing.T) {
 		}
 	}
 }
+
+// Every kind's entries carry two CATEGORIES (RFC 5545 §3.8.1.2), the body
+// and the kind, so that a calendar app can filter them: lamp periods as
+// "Supplemental lighting", not a bare "Sun". Groups (moon-phases) give
+// their members' entries.
+func TestCategoriesEveryKind(t *testing.T) {
+	for _, n := range config.KindNames {
+		switch n {
+		case config.KindSunBand:
+			n += ":20..35"
+		case "sun-altitude":
+			n += ":-3"
+		case "photoperiod", config.KindLighting:
+			n += ":16h"
+		}
+		k, err := config.ParseKind(n)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(k.Members()) > 1 {
+			continue
+		}
+		if c := categories(k); len(c) != 2 || c[0] == "" || c[1] == "" {
+			t.Errorf("%s: categories %q, want the body and the kind", n, c)
+		}
+	}
+	if c := categories(mustKinds(t, "lighting:16h")[0]); c[1] != "Supplemental lighting" {
+		t.Errorf("lighting: categories %q", c)
+	}
+}

@@ -377,6 +377,8 @@ func categories(k config.Kind) []string {
 		name = "Day length"
 	case "daily-summary":
 		name = "Daylight"
+	case config.KindLighting:
+		name = "Supplemental lighting"
 	case "seasons":
 		name = "Season"
 	}

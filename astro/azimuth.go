@@ -18,11 +18,8 @@ import (
 // north), it returns the direction of the body's hour angle measured as if
 // from the Greenwich meridian.
 func (st *site) azimuthFrom(H, dec, dist float64) float64 {
-	sH, cH := math.Sincos(H)
 	sd, cd := math.Sincos(dec)
-	x := dist*cd*cH - st.rhoCos
-	y := dist * cd * sH
-	z := dist*sd - st.rhoSin
+	x, y, z := st.topoVector(H, sd, cd, dist)
 	north := -x*st.sinLat + z*st.cosLat
 	east := -y
 	a := math.Atan2(east, north)

@@ -255,11 +255,24 @@ func (st *site) sinAltitudeFrom(H, dec, dist float64) float64 {
 // sinAltitudeSC is sinAltitudeFrom with the declination's sine and cosine
 // given.
 func (st *site) sinAltitudeSC(H, sd, cd, dist float64) float64 {
+	// topoVector written out: this is the searches' inner loop, and the
+	// compiler does not inline topoVector
 	sH, cH := math.Sincos(H)
 	x := dist*cd*cH - st.rhoCos
 	y := dist * cd * sH
 	z := dist*sd - st.rhoSin
 	return (x*st.cosLat + z*st.sinLat) / math.Sqrt(x*x+y*y+z*z)
+}
+
+// topoVector is the vector from the site to a body at local hour angle H
+// (rad), with declination sine sd and cosine cd, at geocentric distance
+// dist (Earth radii): x towards the meridian on the equator, y towards the
+// west, z towards the pole (Earth radii). azimuthFrom and topoDistance
+// read the body's direction and distance from it; sinAltitudeSC computes
+// the same vector in line.
+func (st *site) topoVector(H, sd, cd, dist float64) (x, y, z float64) {
+	sH, cH := math.Sincos(H)
+	return dist*cd*cH - st.rhoCos, dist * cd * sH, dist*sd - st.rhoSin
 }
 
 // sinAltitude returns the sine of the body's topocentric geometric altitude

@@ -95,11 +95,8 @@ func moonRiseSetAltitude(o Observer, sd float64) float64 {
 // local hour angle H, declination dec and geocentric distance dist (Earth
 // radii), with the geometry of site.sinAltitudeFrom.
 func (st *site) topoDistance(H, dec, dist float64) float64 {
-	sH, cH := math.Sincos(H)
 	sd, cd := math.Sincos(dec)
-	x := dist*cd*cH - st.rhoCos
-	y := dist * cd * sH
-	z := dist*sd - st.rhoSin
+	x, y, z := st.topoVector(H, sd, cd, dist)
 	return math.Sqrt(x*x + y*y + z*z)
 }
 

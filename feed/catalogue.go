@@ -424,6 +424,77 @@ func sortEntries(es []Entry) []Entry {
 	for i := range idx {
 		idx[i] = int32(i)
 	}
+	if !byDate(keys, idx, cmp) {
+		mergeRuns(idx, tmp, ends, cmp)
+	}
+	// es[i] takes the entry at idx[i]: follow each cycle of the permutation
+	for i := range idx {
+		if idx[i] == int32(i) {
+			continue
+		}
+		held, j := es[i], int32(i)
+		for {
+			k := idx[j]
+			idx[j] = j
+			if k == int32(i) {
+				es[j] = held
+				break
+			}
+			es[j], j = es[k], k
+		}
+	}
+	return es
+}
+
+// byDate puts the indices idx (0..n-1) in the order of cmp: by a counting
+// sort of the entries' dates (keys), then each date's few entries by
+// insertion, in time linear in the entries however many runs they come in.
+// It keeps the order of equal entries. It reports false, leaving idx as it
+// is, when the dates are too far apart for one bucket each.
+func byDate(keys []sortKey, idx []int32, cmp func(i, j int32) int) bool {
+	lo, hi := keys[0].date, keys[0].date
+	for i := range keys {
+		lo, hi = min(lo, keys[i].date), max(hi, keys[i].date)
+	}
+	nb := (hi-lo)/secondsPerDay + 1
+	if nb > 4*int64(len(keys))+8 {
+		return false
+	}
+	starts := sortIndices.get(int(nb) + 1)[:nb+1] // bucket b holds idx[starts[b]:starts[b+1]]
+	defer sortIndices.put(starts)
+	for i := range keys {
+		starts[(keys[i].date-lo)/secondsPerDay+1]++
+	}
+	for b := range nb {
+		starts[b+1] += starts[b]
+	}
+	next := sortIndices.get(int(nb))[:nb]
+	defer sortIndices.put(next)
+	copy(next, starts[:nb])
+	for i := range keys {
+		b := (keys[i].date - lo) / secondsPerDay
+		idx[next[b]] = int32(i)
+		next[b]++
+	}
+	for b := range nb {
+		run := idx[starts[b]:starts[b+1]]
+		if len(run) > 32 {
+			slices.SortStableFunc(run, cmp)
+			continue
+		}
+		for j := 1; j < len(run); j++ {
+			for m := j; m > 0 && cmp(run[m], run[m-1]) < 0; m-- {
+				run[m], run[m-1] = run[m-1], run[m]
+			}
+		}
+	}
+	return true
+}
+
+// mergeRuns puts the indices idx (0..n-1, in runs ending at ends, each in
+// the order of cmp) in the order of cmp, using tmp; it keeps the order of
+// equal entries.
+func mergeRuns(idx, tmp, ends []int32, cmp func(i, j int32) int) {
 	startOf := func(r int) int32 {
 		if r == 0 {
 			return 0
@@ -455,23 +526,6 @@ func sortEntries(es []Entry) []Entry {
 		copy(idx[lo:hi], tmp[lo:hi])
 		ends = append(ends[:best], ends[best+1:]...)
 	}
-	// es[i] takes the entry at idx[i]: follow each cycle of the permutation
-	for i := range idx {
-		if idx[i] == int32(i) {
-			continue
-		}
-		held, j := es[i], int32(i)
-		for {
-			k := idx[j]
-			idx[j] = j
-			if k == int32(i) {
-				es[j] = held
-				break
-			}
-			es[j], j = es[k], k
-		}
-	}
-	return es
 }
 
 // sortKey is what CompareEntries reads of an entry before its kind, title

@@ -90,3 +90,38 @@ func TestSortEntriesAllDay(t *testing.T) {
 		t.Errorf("order %s, want %s", got, want)
 	}
 }
+
+// TestSortEntriesByDate: entries of many dates, all-day and timed, in runs
+// as the kinds give them or shuffled, and with dates too far apart for a
+// bucket each, come in the order of CompareEntries.
+func TestSortEntriesByDate(t *testing.T) {
+	r := rand.New(rand.NewPCG(5, 6))
+	d0 := time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC)
+	kinds := []string{"sunrise", "sunset", "photoperiod:12h", "daily-summary", KindPlan, "lighting:16h"}
+	for n, spread := range []int{1, 3, 40, 400, 400, 100000} {
+		var es []Entry
+		for k, kind := range kinds {
+			for i := range 60 {
+				d := d0.AddDate(0, 0, i*spread/60)
+				if n == 4 {
+					d = d0.AddDate(0, 0, r.IntN(spread))
+				}
+				e := Entry{Kind: kind, Title: kind + strconv.Itoa(r.IntN(3)), UID: strconv.Itoa(k) + "-" + strconv.Itoa(i), Date: d,
+					Start: d.Add(time.Duration(r.IntN(48)) * time.Hour / 2)}
+				if r.IntN(4) == 0 {
+					e.AllDay, e.Start, e.End = true, d, d.AddDate(0, 0, 1)
+				}
+				es = append(es, e)
+			}
+		}
+		want := slices.Clone(es)
+		slices.SortStableFunc(want, func(a, b Entry) int { return CompareEntries(&a, &b) })
+		got := sortEntries(slices.Clone(es))
+		for i := range got {
+			if got[i].UID != want[i].UID {
+				t.Fatalf("spread %d: entry %d is %s (%s %v), want %s (%s %v)", spread, i,
+					got[i].UID, got[i].Kind, got[i].Start, want[i].UID, want[i].Kind, want[i].Start)
+			}
+		}
+	}
+}

@@ -759,11 +759,43 @@ func (c *collector) dayStarts() []time.Time {
 	if c.starts == nil {
 		n := int(c.last.Sub(c.first).Hours()/24+0.5) + 4
 		c.starts = make([]time.Time, n)
+		// Within one period of the zone (between two clock changes) the
+		// local midnights lie 24 h apart: the next one is the last plus
+		// a day while that stays inside the period (no instant between
+		// them reads the new date); midnight works out the others.
+		// A date that starts at a clock change instead (the clocks skip
+		// midnight), or that does not exist at all, is not followed that
+		// way.
+		var end time.Time // the end of the last midnight's period; zero: none
+		known := false    // the last start is a midnight and end is its period's
 		for i := range c.starts {
-			c.starts[i] = midnight(c.first.AddDate(0, 0, i-1), c.p.Location)
+			if known {
+				if next := c.starts[i-1].Add(24 * time.Hour); end.IsZero() || next.Before(end) {
+					c.starts[i] = next
+					continue
+				}
+			}
+			d := c.first.AddDate(0, 0, i-1)
+			c.starts[i] = midnight(d, c.p.Location)
+			local := c.starts[i].In(c.p.Location)
+			_, end = local.ZoneBounds()
+			h, m, sec := local.Clock()
+			known = h == 0 && m == 0 && sec == 0 && local.Nanosecond() == 0 && civil(local).Equal(d)
 		}
 	}
 	return c.starts
+}
+
+// nextMidnight returns the local midnight that ends the local date d
+// (first-2..last+1), from dayStarts where it has it.
+func (c *collector) nextMidnight(d time.Time) time.Time {
+	starts := c.dayStarts() // the dates first-1..last+2
+	if base := c.first.AddDate(0, 0, -2); !d.Before(base) {
+		if j := int(d.Sub(base).Hours()/24 + 0.5); j < len(starts) { // d+1 is date first-1+j
+			return starts[j]
+		}
+	}
+	return midnight(d.AddDate(0, 0, 1), c.p.Location)
 }
 
 // noonOf returns the Sun's upper transit (solar noon, with its altitude)
@@ -934,7 +966,7 @@ func (c *collector) dayEnds(alt float64) ([]time.Time, error) {
 		}
 		d := localDate(rise.Time, c.p.Location)
 		i := int(d.Sub(first).Hours()/24 + 0.5)
-		if i < 0 || i >= len(late) || !set.Time.After(midnight(d.AddDate(0, 0, 1), c.p.Location)) {
+		if i < 0 || i >= len(late) || !set.Time.After(c.nextMidnight(d)) {
 			continue
 		}
 		late[i] = set.Time

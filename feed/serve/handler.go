@@ -37,6 +37,7 @@ var (
 	hdrCORS       = hdr("*")
 	hdrVary       = hdr("Accept-Encoding")
 	hdrGzip       = hdr("gzip")
+	hdrBytes      = hdr("bytes")
 	hdrNoStore    = hdr("no-store")
 	hdrAllow      = hdr("GET, HEAD")
 	hdrRetryAfter = hdr("30")
@@ -237,7 +238,41 @@ func (s *Server) serveAsset(w http.ResponseWriter, r *http.Request, a *asset) {
 			body = bytes.NewReader(a.data)
 		}
 	}
+	if br, ok := body.(*bytes.Reader); ok && unconditional(r) {
+		writeWhole(w, r, a.modTime, br)
+		return
+	}
 	http.ServeContent(w, r, "", a.modTime, body)
+}
+
+// unconditional reports whether r asks for the whole representation
+// whatever it is: no validator to check, no range.
+func unconditional(r *http.Request) bool {
+	for _, k := range [...]string{"If-Match", "If-None-Match", "If-Modified-Since", "If-Unmodified-Since", "Range"} {
+		if _, ok := r.Header[k]; ok {
+			return false
+		}
+	}
+	return true
+}
+
+// writeWhole answers an unconditional GET or HEAD with the whole of body as
+// http.ServeContent would (Last-Modified, Accept-Ranges), and with its
+// Content-Length even when the body is the gzip form (ServeContent leaves
+// it out when Content-Encoding is set, so such a response went chunked).
+// The body is written with one call: ServeContent's io.CopyN allocated a
+// 32 kB copy buffer for every response.
+func writeWhole(w http.ResponseWriter, r *http.Request, mod time.Time, body *bytes.Reader) {
+	h := w.Header()
+	if !mod.IsZero() && !mod.Equal(time.Unix(0, 0)) {
+		h["Last-Modified"] = []string{mod.UTC().Format(http.TimeFormat)}
+	}
+	h["Accept-Ranges"] = hdrBytes
+	h["Content-Length"] = []string{strconv.Itoa(body.Len())}
+	w.WriteHeader(http.StatusOK)
+	if r.Method != http.MethodHead {
+		body.WriteTo(w)
+	}
 }
 
 // health is the /healthz body.

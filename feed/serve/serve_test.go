@@ -10,7 +10,11 @@ import (
 	"errors"
 	"io"
 	"log/slog"
+	"maps"
 	"net/http"
+	"net/http/httptest"
+	"slices"
+	"strconv"
 	"strings"
 	"sync"
 	"testing"
@@ -530,6 +534,51 @@ func TestCacheControlBounds(t *testing.T) {
 		s, _ := newTestServer(t, tc.opts)
 		if got := get(t, s.Handler(), "GET", "/feeds.json").Header.Get("Cache-Control"); got != tc.want {
 			t.Errorf("%+v: Cache-Control %q, want %q", tc.opts, got, tc.want)
+		}
+	}
+}
+
+// TestWholeResponse: an unconditional GET or HEAD of a feed is answered as
+// http.ServeContent answers it (same status, headers and body), with a
+// Content-Length for the gzip form too, which ServeContent leaves out when
+// Content-Encoding is set.
+func TestWholeResponse(t *testing.T) {
+	s, _ := newTestServer(t, Options{})
+	a := s.snap.Load().files["meadowbrook-sun.ics"]
+	for _, method := range []string{"GET", "HEAD"} {
+		for _, gz := range []bool{false, true} {
+			var enc []string
+			want := a.data
+			if gz {
+				enc = []string{"Accept-Encoding", "gzip"}
+				want = a.gz
+			}
+			got := get(t, s.Handler(), method, "/feeds/meadowbrook-sun.ics", enc...)
+			b := body(t, got)
+
+			// The reference: ServeContent with the headers serveAsset sets.
+			ref := httptest.NewRecorder()
+			for k, v := range got.Header {
+				if k != "Content-Length" && k != "Last-Modified" && k != "Accept-Ranges" {
+					ref.Header()[k] = v
+				}
+			}
+			http.ServeContent(ref, httptest.NewRequest(method, "/feeds/meadowbrook-sun.ics", nil), "", a.modTime, bytes.NewReader(want))
+			refResp := ref.Result()
+			if !gz {
+				if !maps.EqualFunc(got.Header, refResp.Header, slices.Equal) {
+					t.Errorf("%s: headers\n%v\nwant as ServeContent's\n%v", method, got.Header, refResp.Header)
+				}
+			}
+			if got.StatusCode != http.StatusOK || got.Header.Get("Content-Length") != strconv.Itoa(len(want)) ||
+				got.Header.Get("Last-Modified") != refResp.Header.Get("Last-Modified") || got.Header.Get("Accept-Ranges") != "bytes" {
+				t.Errorf("%s gzip=%v: status %d, Content-Length %q (want %d), Last-Modified %q (want %q), Accept-Ranges %q",
+					method, gz, got.StatusCode, got.Header.Get("Content-Length"), len(want),
+					got.Header.Get("Last-Modified"), refResp.Header.Get("Last-Modified"), got.Header.Get("Accept-Ranges"))
+			}
+			if wantBody := string(want); method == "HEAD" && b != "" || method == "GET" && b != wantBody {
+				t.Errorf("%s gzip=%v: body of %d bytes, want %d", method, gz, len(b), len(want))
+			}
 		}
 	}
 }

@@ -529,7 +529,8 @@ func details(e *feed.Event, loc *time.Location) string {
 		parts = append(parts, fmt.Sprintf("%.6f au", e.Distance))
 	}
 	if e.Illuminated > 0 {
-		parts = append(parts, fmt.Sprintf("%.0f%% lit", e.Illuminated*100))
+		// as the feeds write it ("22 % lit"), half a percent rounding up
+		parts = append(parts, fmt.Sprintf("%d %% lit", int(math.Round(e.Illuminated*100))))
 	}
 	parts = append(parts, eclipseDetails(e, loc)...)
 	return strings.Join(parts, ", ")

@@ -119,3 +119,22 @@ func TestDateOnlyEvents(t *testing.T) {
 		t.Errorf("table does not mark the date-only rows:\n%s", table)
 	}
 }
+
+// The table writes the Moon's illuminated fraction as the feeds do, "13 %
+// lit", with a space and half a percent rounding up (12.5 % is 13 %, as
+// math.Round gives; fmt's %.0f would give 12, rounding half to even).
+func TestTableIlluminationAsFeeds(t *testing.T) {
+	k, err := config.ParseKind("moonrise")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range []struct {
+		lit  float64
+		want string
+	}{{0.125, "13 % lit"}, {0.375, "38 % lit"}, {0.22, "22 % lit"}} {
+		e := feed.Event{Kind: k, Start: time.Date(2027, 1, 1, 0, 53, 0, 0, time.UTC), Illuminated: c.lit}
+		if got := details(&e, time.UTC); !strings.HasSuffix(got, c.want) {
+			t.Errorf("illuminated %v: %q, want it to end %q", c.lit, got, c.want)
+		}
+	}
+}

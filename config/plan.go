@@ -170,6 +170,15 @@ func ParseDateRule(s string) (DateRule, error) {
 			return DateRule{}, &RuleError{Msg: "not a date", Hint: "write YYYY-MM-DD, e.g. 2027-06-12"}
 		}
 		return DateRule{Type: RuleOnce, Date: d}, nil
+	case len(f) == 1 && (f[0] == "every" || f[0] == "day" || f[0] == "daily" || isWeekday(f[0])):
+		// "friday" alone is a weekly rule without its "every", not a kind
+		hint := `write "every day"`
+		if d, ok := ParseWeekday(f[0]); ok {
+			hint = fmt.Sprintf(`write "every %s"`, strings.ToLower(d.String()))
+		} else if f[0] == "every" {
+			hint = `say every what: "every day", "every friday" or "every 04-25"`
+		}
+		return DateRule{}, &RuleError{Msg: "not a date rule", Hint: hint}
 	case len(f) == 1:
 		k, err := anchorKind(f[0])
 		if err != nil {
@@ -192,6 +201,8 @@ func ParseDateRule(s string) (DateRule, error) {
 	}
 	return DateRule{}, &RuleError{Msg: "not a date rule", Hint: dateRuleHint}
 }
+
+func isWeekday(s string) bool { _, ok := ParseWeekday(s); return ok }
 
 // anchorKind parses the event kind a date rule is anchored to: a kind with a
 // few events a year or a month, or photoperiod.

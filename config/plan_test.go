@@ -1,6 +1,7 @@
 package config
 
 import (
+	"errors"
 	"strings"
 	"testing"
 	"time"
@@ -68,6 +69,23 @@ func TestParseTimeSpec(t *testing.T) {
 	for _, bad := range []string{"24:00", "8pm", "golden-hour", "sunset+13h", "sun-altitude:-3", "daily-summary"} {
 		if _, err := ParseTimeSpec(bad); err == nil {
 			t.Errorf("%q: no error", bad)
+		}
+	}
+}
+
+// A weekday, "day" or "every" alone is a weekly or daily rule short of a
+// word, not an unknown kind: the hint gives the rule meant.
+func TestDateRuleMissingEvery(t *testing.T) {
+	for in, hint := range map[string]string{
+		"friday": `write "every friday"`,
+		"Sat":    `write "every saturday"`,
+		"daily":  `write "every day"`,
+		"every":  `say every what: "every day", "every friday" or "every 04-25"`,
+	} {
+		_, err := ParseDateRule(in)
+		var re *RuleError
+		if !errors.As(err, &re) || re.Msg != "not a date rule" || re.Hint != hint {
+			t.Errorf("%q: %v, want not a date rule (%s)", in, err, hint)
 		}
 	}
 }

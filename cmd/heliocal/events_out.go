@@ -56,6 +56,7 @@ type jsonSink struct {
 	held     []feed.Event
 	merged   []feed.Event
 	kinds    []jsonKind // the kinds met so far, looked up in order
+	last     int        // index + 1 in kinds of the last event's kind; 0: none yet
 	days     dayCache
 }
 
@@ -84,6 +85,7 @@ type jsonKind struct {
 	plain bool   // written by event itself (see plainJSONKinds)
 	noon  bool   // altitude_deg
 	rise  bool   // day_length_s and azimuth_deg
+	next  int    // index + 1 in kinds of the kind that followed this one last time; 0: none yet
 }
 
 // jsonFlush is the size at which the writer hands its buffer on.
@@ -204,9 +206,20 @@ func (j *jsonSink) event(e *feed.Event) {
 }
 
 // kind returns what the writer knows of k, working it out the first time.
+//
+// The kinds of a listing follow one another in much the same order every
+// day, so the kind that followed the last one the time before is tried
+// first.
 func (j *jsonSink) kind(k config.Kind) *jsonKind {
+	if j.last > 0 {
+		if n := j.kinds[j.last-1].next; n > 0 && j.kinds[n-1].kind == k {
+			j.last = n
+			return &j.kinds[n-1]
+		}
+	}
 	for i := range j.kinds {
 		if j.kinds[i].kind == k {
+			j.follow(i)
 			return &j.kinds[i]
 		}
 	}
@@ -214,7 +227,16 @@ func (j *jsonSink) kind(k config.Kind) *jsonKind {
 		rise: k.Name == "sunrise" || k.Name == "sunset"}
 	jk.head = string(appendJSONString([]byte("\n    {\n      \"kind\": "), k.String()))
 	j.kinds = append(j.kinds, jk)
+	j.follow(len(j.kinds) - 1)
 	return &j.kinds[len(j.kinds)-1]
+}
+
+// follow records that the kind at index i follows the last event's kind.
+func (j *jsonSink) follow(i int) {
+	if j.last > 0 {
+		j.kinds[j.last-1].next = i + 1
+	}
+	j.last = i + 1
 }
 
 // plainJSONKinds are the kinds whose JSON event.event writes itself, with

@@ -866,7 +866,8 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 		en.End = e.End.Add(offset)
 	}
 	en.Facts = Facts{Part: e.Part, Direction: e.Direction, Altitude: e.Altitude, Azimuth: e.Azimuth, Distance: e.Distance,
-		Illuminated: e.Illuminated, DayLength: e.DayLength, DirectSun: e.DirectSun, Lamp: e.Lamp, Short: e.Short}
+		Illuminated: e.Illuminated, DayLength: e.DayLength, DirectSun: e.DirectSun, Lamp: e.Lamp, Short: e.Short,
+		Eclipse: e.EclipseFacts()}
 	if spec.AllDay || e.Kind.Name == "photoperiod" {
 		d := z.date(en.Start)
 		en.AllDay, en.Start, en.End, en.Date = true, d, d.AddDate(0, 0, 1), d

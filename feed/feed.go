@@ -65,6 +65,16 @@ type Facts struct {
 	Short       bool            // lighting: clipped, the target is not reached
 	NextDay     bool            // plans: the end falls on the next local date
 	Missing     string          // plans: the start event that does not happen on the date
+	Eclipse     *EclipseFacts   // eclipses: the local circumstances; nil for other kinds
+}
+
+// EclipseFacts are an eclipse entry's local circumstances, as its event has
+// them (see Event): one of Solar and Lunar is set.
+type EclipseFacts struct {
+	Solar   *astro.LocalSolarEclipse
+	Lunar   *astro.LocalLunarEclipse
+	Skyline bool         // the site has a skyline: Visible applies
+	Visible []astro.Span // the spans with the body over the skyline
 }
 
 // Site is where a calendar's events are computed, as the feed renderers need it.

@@ -54,6 +54,15 @@ type Event struct {
 	Visible []astro.Span
 }
 
+// EclipseFacts returns the eclipse circumstances of an event, nil for
+// other kinds.
+func (e Event) EclipseFacts() *EclipseFacts {
+	if e.Solar == nil && e.Lunar == nil {
+		return nil
+	}
+	return &EclipseFacts{Solar: e.Solar, Lunar: e.Lunar, Skyline: e.Skyline, Visible: e.Visible}
+}
+
 // seen reports whether an eclipse event's body is over the site's skyline
 // at t (always, at a site without a skyline).
 func (e Event) seen(t time.Time) bool {

@@ -430,7 +430,7 @@ func toJSONEvent(e feed.Event) jsonEvent {
 		l := math.Round(e.Lamp.Seconds()*1000) / 1000
 		j.Lamp, j.Short = &l, e.Short
 	}
-	j.jsonEclipse = eclipseJSON(e)
+	j.jsonEclipse = eclipseJSON(e.EclipseFacts())
 	if strings.Contains(e.Kind.Name, "moon") || e.Kind.Name == "first-quarter" || e.Kind.Name == "last-quarter" {
 		f := math.Round(e.Illuminated*1e4) / 1e4
 		j.Lit = &f

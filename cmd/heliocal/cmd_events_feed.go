@@ -113,11 +113,14 @@ func checkRange(from, to time.Time) error {
 
 // jsonEntry is one calendar entry in JSON and, field by field, in CSV.
 type jsonEntry struct {
-	Kind        string   `json:"kind"`
-	Title       string   `json:"title"`
-	Date        string   `json:"date"`
-	Start       string   `json:"start,omitempty"` // timed entries only
-	End         string   `json:"end,omitempty"`
+	Kind  string `json:"kind"`
+	Title string `json:"title"`
+	Date  string `json:"date"`
+	Start string `json:"start,omitempty"` // timed entries only
+	End   string `json:"end,omitempty"`
+	// eclipse fields (max, type, magnitudes, phases), inline as in the
+	// events of the kinds
+	*jsonEclipse
 	AllDay      bool     `json:"all_day,omitempty"`
 	Part        string   `json:"part,omitempty"`
 	Direction   string   `json:"direction,omitempty"`
@@ -158,7 +161,7 @@ func toJSONEntry(cal *feed.Calendar, e *feed.Entry) jsonEntry {
 	f := e.Facts
 	j := jsonEntry{Kind: e.Kind, Title: e.Title, Date: e.Date.Format(time.DateOnly), AllDay: e.AllDay,
 		Part: f.Part, Direction: feed.DirectionName(e.Kind, f.Direction), Note: f.Note, Short: f.Short, NextDay: f.NextDay,
-		Missing: f.Missing, UID: e.UID, Description: e.Description}
+		Missing: f.Missing, UID: e.UID, Description: e.Description, jsonEclipse: eclipseJSON(f.Eclipse)}
 	if !e.AllDay {
 		j.Start = utcStamp(e.Start)
 		if !e.End.IsZero() {
@@ -220,10 +223,11 @@ func writeEntriesJSON(w io.Writer, s *config.Site, from, to time.Time, cal *feed
 }
 
 // entriesCSVHeader is the header row of a feed's entries as CSV: every
-// field of their JSON form (a test holds it complete), and the local times.
-var entriesCSVHeader = []string{"date", "kind", "title", "all_day", "start_utc", "end_utc", "start_local", "end_local",
+// field of their JSON form (a test holds it complete), and the local times;
+// the eclipse fields come last.
+var entriesCSVHeader = append([]string{"date", "kind", "title", "all_day", "start_utc", "end_utc", "start_local", "end_local",
 	"part", "direction", "note", "state", "until", "altitude_deg", "azimuth_deg", "distance_au", "day_length_s", "direct_sun_s", "day_change_s",
-	"illuminated", "lamp_s", "target_not_reached", "next_day", "missing_start", "alarm_s", "uid", "description"}
+	"illuminated", "lamp_s", "target_not_reached", "next_day", "missing_start", "alarm_s", "uid", "description"}, eclipseCSVHeader...)
 
 func writeEntriesCSV(w io.Writer, cal *feed.Calendar) error {
 	loc := cal.Site.Location
@@ -239,9 +243,10 @@ func writeEntriesCSV(w io.Writer, cal *feed.Calendar) error {
 				endLocal = localStamp(e.End, loc)
 			}
 		}
-		_ = cw.Write([]string{j.Date, j.Kind, j.Title, yes(j.AllDay), j.Start, j.End, startLocal, endLocal,
+		_ = cw.Write(append([]string{j.Date, j.Kind, j.Title, yes(j.AllDay), j.Start, j.End, startLocal, endLocal,
 			j.Part, j.Direction, yes(j.Note), j.State, j.Until, num(j.Altitude), num(j.Azimuth), num(j.Distance), num(j.DayLength), num(j.DirectSun),
-			num(j.DayChange), num(j.Lit), num(j.Lamp), yes(j.Short), yes(j.NextDay), j.Missing, num(j.Alarm), j.UID, j.Description})
+			num(j.DayChange), num(j.Lit), num(j.Lamp), yes(j.Short), yes(j.NextDay), j.Missing, num(j.Alarm), j.UID, j.Description},
+			j.jsonEclipse.csvCells()...))
 	}
 	cw.Flush()
 	return cw.Error()

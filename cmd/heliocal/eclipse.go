@@ -32,8 +32,12 @@ type jsonEclipse struct {
 	VisibleEnd   string   `json:"visible_end,omitempty"`
 }
 
-// eclipseJSON returns the eclipse fields of an event, nil for other kinds.
-func eclipseJSON(e feed.Event) *jsonEclipse {
+// eclipseJSON returns the eclipse fields of an event or a feed's entry
+// (feed.Event.EclipseFacts, feed.Facts.Eclipse), nil for other kinds.
+func eclipseJSON(x *feed.EclipseFacts) *jsonEclipse {
+	if x == nil {
+		return nil
+	}
 	at := func(t time.Time) string {
 		if t.IsZero() {
 			return ""
@@ -46,29 +50,44 @@ func eclipseJSON(e feed.Event) *jsonEclipse {
 	}
 	var j *jsonEclipse
 	switch {
-	case e.Solar != nil:
-		l := e.Solar
+	case x.Solar != nil:
+		l := x.Solar
 		j = &jsonEclipse{Max: at(l.Max.Time), Type: l.Type.String(), Magnitude: round(l.Magnitude),
 			Obscuration: round(l.Obscuration), TotalStart: at(l.C2.Time), TotalEnd: at(l.C3.Time)}
-	case e.Lunar != nil:
-		l := e.Lunar.Eclipse
+	case x.Lunar != nil:
+		l := x.Lunar.Eclipse
 		j = &jsonEclipse{Max: at(l.Max), Type: l.Type.String(), UmbralMagnitude: round(l.UmbralMagnitude),
 			PartialStart: at(l.U1), PartialEnd: at(l.U4), TotalStart: at(l.U2), TotalEnd: at(l.U3)}
 	default:
 		return nil
 	}
-	if e.Skyline {
+	if x.Skyline {
 		var seen time.Duration
-		for _, v := range e.Visible {
+		for _, v := range x.Visible {
 			seen += v.Length
 		}
 		s := math.Round(seen.Seconds()*1000) / 1000
 		j.VisibleS = &s
-		if n := len(e.Visible); n > 0 {
-			j.VisibleStart, j.VisibleEnd = at(e.Visible[0].Start), at(e.Visible[n-1].End)
+		if n := len(x.Visible); n > 0 {
+			j.VisibleStart, j.VisibleEnd = at(x.Visible[0].Start), at(x.Visible[n-1].End)
 		}
 	}
 	return j
+}
+
+// eclipseCSVHeader are the CSV columns of the eclipse fields, in the order
+// of jsonEclipse (a feed's entries end with them).
+var eclipseCSVHeader = []string{"max", "type", "magnitude", "obscuration", "umbral_magnitude", "partial_start",
+	"partial_end", "total_start", "total_end", "visible_s", "visible_start", "visible_end"}
+
+// csvCells are the eclipse fields under eclipseCSVHeader, all empty for
+// another kind.
+func (j *jsonEclipse) csvCells() []string {
+	if j == nil {
+		return make([]string, len(eclipseCSVHeader))
+	}
+	return []string{j.Max, j.Type, num(j.Magnitude), num(j.Obscuration), num(j.UmbralMagnitude), j.PartialStart,
+		j.PartialEnd, j.TotalStart, j.TotalEnd, num(j.VisibleS), j.VisibleStart, j.VisibleEnd}
 }
 
 // eclipseDetails are the table's details of an eclipse: type, maximum and

@@ -226,7 +226,7 @@ func TestEventsCSVHasEveryJSONField(t *testing.T) {
 	for _, c := range entriesCSVHeader {
 		cols[strings.TrimSuffix(c, "_utc")] = true
 	}
-	checkCSVColumns(t, cols, reflect.TypeFor[jsonEntry]())
+	checkCSVColumns(t, cols, reflect.TypeFor[jsonEntry](), reflect.TypeFor[jsonEclipse]())
 }
 
 func checkCSVColumns(t *testing.T, cols map[string]bool, types ...reflect.Type) {

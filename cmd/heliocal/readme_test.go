@@ -2,6 +2,7 @@ package main
 
 import (
 	"encoding/json"
+	"fmt"
 	"os"
 	"strings"
 	"testing"
@@ -49,20 +50,85 @@ func TestReadmeEventsExample(t *testing.T) {
 		if i >= len(got.Events) {
 			t.Fatalf("only %d events printed", len(got.Events))
 		}
-		for k, w := range want {
-			g := got.Events[i][k]
-			if k == "start" || k == "end" {
-				wt, _ := time.Parse(time.RFC3339Nano, w.(string))
-				gt, _ := time.Parse(time.RFC3339Nano, g.(string))
-				if d := gt.Sub(wt); d < -5*time.Millisecond || d > 5*time.Millisecond {
-					t.Errorf("event %d %s: printed %v, README %v", i, k, g, w)
-				}
-				continue
+		samePrinted(t, fmt.Sprintf("event %d", i), want, got.Events[i])
+	}
+}
+
+// samePrinted checks that an object the README shows is the one printed:
+// every field equal, the instants within 5 ms (the README shows them to the
+// millisecond; the search may move its last digit). A field the README
+// shortens to "…" is not compared.
+func samePrinted(t *testing.T, what string, want, got map[string]any) {
+	t.Helper()
+	for k, w := range want {
+		g := got[k]
+		if w == "…" {
+			continue
+		}
+		if k == "start" || k == "end" {
+			wt, err1 := time.Parse(time.RFC3339Nano, w.(string))
+			gs, _ := g.(string)
+			gt, err2 := time.Parse(time.RFC3339Nano, gs)
+			if d := gt.Sub(wt); err1 != nil || err2 != nil || d < -5*time.Millisecond || d > 5*time.Millisecond {
+				t.Errorf("%s %s: printed %v, README %v", what, k, g, w)
 			}
-			if g != w {
-				t.Errorf("event %d %s: printed %v, README %v", i, k, g, w)
+			continue
+		}
+		if g != w {
+			t.Errorf("%s %s: printed %v, README %v", what, k, g, w)
+		}
+	}
+}
+
+// The README's example of a feed's entries (`events --feed`, from the
+// demo's cairnmoor-twilight, fernhollow-lamps and fernhollow-year feeds)
+// is what those feeds print: each line shown is an entry of one of them
+// on its date, every field equal, the instants within 5 ms.
+func TestReadmeFeedExample(t *testing.T) {
+	readme, err := os.ReadFile("../../README.md")
+	if err != nil {
+		t.Fatal(err)
+	}
+	n := 0
+	for _, l := range strings.Split(string(readme), "\n") {
+		if !strings.HasPrefix(l, `{"kind": "`) || !strings.Contains(l, `"uid": "…"`) {
+			continue
+		}
+		n++
+		var want map[string]any
+		if err := json.Unmarshal([]byte(l), &want); err != nil {
+			t.Fatalf("README line %s: %v", l, err)
+		}
+		date, _ := want["date"].(string)
+		var found map[string]any
+		for _, f := range []string{"cairnmoor-twilight", "fernhollow-lamps", "fernhollow-year"} {
+			code, out, errOut := runCLI(t, "events", "--feed", f, "--from", date, "--to", date, "--format", "json")
+			if code != 0 {
+				t.Fatalf("--feed %s: exit %d: %s", f, code, errOut)
+			}
+			var got struct{ Entries []map[string]any }
+			if err := json.Unmarshal([]byte(out), &got); err != nil {
+				t.Fatal(err)
+			}
+			for _, e := range got.Entries {
+				if e["kind"] == want["kind"] && e["title"] == want["title"] {
+					found = e
+				}
 			}
 		}
+		if found == nil {
+			t.Errorf("README entry %s: no feed prints it on %s", want["title"], date)
+			continue
+		}
+		samePrinted(t, fmt.Sprint(want["title"]), want, found)
+		for k := range found {
+			if _, ok := want[k]; !ok {
+				t.Errorf("%s: printed field %s not in the README", want["title"], k)
+			}
+		}
+	}
+	if n != 3 {
+		t.Errorf("found %d feed entries in the README, want 3", n)
 	}
 }
 

@@ -4,6 +4,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"os"
+	"slices"
 	"strings"
 	"testing"
 	"time"
@@ -16,29 +17,54 @@ import (
 // equal, the instants within 5 ms (the README shows them to the
 // millisecond; the search may move its last digit).
 func TestReadmeEventsExample(t *testing.T) {
+	shown := readmeJSON(t, func(l string) bool {
+		return strings.HasPrefix(l, `{"kind": "`) && strings.Contains(l, `"date": "2027-01-01"`) && strings.Contains(l, `"start": "2027-01-01T`)
+	})
+	shown = slices.DeleteFunc(shown, func(e map[string]any) bool {
+		k := e["kind"]
+		return k != "golden-hour" && k != "sunrise" && k != "sun-altitude:10"
+	})
+	if len(shown) != 3 {
+		t.Fatalf("found %d example events in the README, want 3", len(shown))
+	}
+	got := printedEvents(t, "--lat", "48.2", "--lon", "16.4", "--elev", "180", "--tz", "Europe/Vienna",
+		"--from", "2027-01-01", "--to", "2027-01-01", "--kinds", "sunrise,golden-hour,sun-altitude:10")
+	for i, want := range shown {
+		if i >= len(got) {
+			t.Fatalf("only %d events printed", len(got))
+		}
+		samePrinted(t, fmt.Sprintf("event %d", i), want, got[i])
+	}
+}
+
+// readmeJSON returns the README's lines that keep takes (trimmed, without a
+// trailing comma), each parsed as a JSON object.
+func readmeJSON(t *testing.T, keep func(line string) bool) []map[string]any {
+	t.Helper()
 	readme, err := os.ReadFile("../../README.md")
 	if err != nil {
 		t.Fatal(err)
 	}
-	var shown []map[string]any
+	var out []map[string]any
 	for _, l := range strings.Split(string(readme), "\n") {
 		l = strings.TrimSuffix(strings.TrimSpace(l), ",")
-		if !strings.HasPrefix(l, `{"kind": "`) || !strings.Contains(l, `"date": "2027-01-01"`) || !strings.Contains(l, `"start": "2027-01-01T`) {
+		if !keep(l) {
 			continue
 		}
 		var e map[string]any
 		if err := json.Unmarshal([]byte(l), &e); err != nil {
 			t.Fatalf("README line %s: %v", l, err)
 		}
-		if k := e["kind"]; k == "golden-hour" || k == "sunrise" || k == "sun-altitude:10" {
-			shown = append(shown, e)
-		}
+		out = append(out, e)
 	}
-	if len(shown) != 3 {
-		t.Fatalf("found %d example events in the README, want 3", len(shown))
-	}
-	code, out, errOut := runCLI(t, "events", "--lat", "48.2", "--lon", "16.4", "--elev", "180", "--tz", "Europe/Vienna",
-		"--from", "2027-01-01", "--to", "2027-01-01", "--kinds", "sunrise,golden-hour,sun-altitude:10", "--format", "json")
+	return out
+}
+
+// printedEvents runs `heliocal events` with args and --format json and
+// returns the events it prints.
+func printedEvents(t *testing.T, args ...string) []map[string]any {
+	t.Helper()
+	code, out, errOut := runCLI(t, append(append([]string{"events"}, args...), "--format", "json")...)
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, errOut)
 	}
@@ -46,12 +72,7 @@ func TestReadmeEventsExample(t *testing.T) {
 	if err := json.Unmarshal([]byte(out), &got); err != nil {
 		t.Fatal(err)
 	}
-	for i, want := range shown {
-		if i >= len(got.Events) {
-			t.Fatalf("only %d events printed", len(got.Events))
-		}
-		samePrinted(t, fmt.Sprintf("event %d", i), want, got.Events[i])
-	}
+	return got.Events
 }
 
 // samePrinted checks that an object the README shows is the one printed:
@@ -84,41 +105,21 @@ func samePrinted(t *testing.T, what string, want, got map[string]any) {
 // two eclipses of August 2026 at Vienna, every field shown equal and every
 // field printed shown, the instants (contacts and maximum) within 5 ms.
 func TestReadmeEclipseExample(t *testing.T) {
-	readme, err := os.ReadFile("../../README.md")
-	if err != nil {
-		t.Fatal(err)
-	}
-	var shown []map[string]any
-	for _, l := range strings.Split(string(readme), "\n") {
-		l = strings.TrimSuffix(strings.TrimSpace(l), ",")
-		if !strings.HasPrefix(l, `{"kind": "solar-eclipse"`) && !strings.HasPrefix(l, `{"kind": "lunar-eclipse"`) {
-			continue
-		}
-		var e map[string]any
-		if err := json.Unmarshal([]byte(l), &e); err != nil {
-			t.Fatalf("README line %s: %v", l, err)
-		}
-		shown = append(shown, e)
-	}
+	shown := readmeJSON(t, func(l string) bool {
+		return strings.HasPrefix(l, `{"kind": "solar-eclipse"`) || strings.HasPrefix(l, `{"kind": "lunar-eclipse"`)
+	})
 	if len(shown) != 2 {
 		t.Fatalf("found %d eclipse lines in the README, want 2", len(shown))
 	}
-	code, out, errOut := runCLI(t, "events", "--lat", "48.21", "--lon", "16.37", "--elev", "190", "--tz", "Europe/Vienna",
-		"--from", "2026-08-01", "--to", "2026-08-31", "--kinds", "solar-eclipse,lunar-eclipse", "--format", "json")
-	if code != 0 {
-		t.Fatalf("exit %d: %s", code, errOut)
-	}
-	var got struct{ Events []map[string]any }
-	if err := json.Unmarshal([]byte(out), &got); err != nil {
-		t.Fatal(err)
-	}
-	if len(got.Events) != len(shown) {
-		t.Fatalf("printed %d events, the README shows %d", len(got.Events), len(shown))
+	got := printedEvents(t, "--lat", "48.21", "--lon", "16.37", "--elev", "190", "--tz", "Europe/Vienna",
+		"--from", "2026-08-01", "--to", "2026-08-31", "--kinds", "solar-eclipse,lunar-eclipse")
+	if len(got) != len(shown) {
+		t.Fatalf("printed %d events, the README shows %d", len(got), len(shown))
 	}
 	for i, want := range shown {
 		what := fmt.Sprint(want["kind"])
-		samePrinted(t, what, want, got.Events[i])
-		for k := range got.Events[i] {
+		samePrinted(t, what, want, got[i])
+		for k := range got[i] {
 			if _, ok := want[k]; !ok {
 				t.Errorf("%s: printed field %s not in the README", what, k)
 			}

@@ -344,7 +344,8 @@ func (s *Sky) eventsFor(ctx context.Context, p Place, specs []config.KindSpec, f
 		return nil, nil, fmt.Errorf("feed: %w", err)
 	}
 	// Each kind appends its own run of events (and of notes), in order or
-	// nearly so; the whole is then put in order by buckets.
+	// nearly so; the runs of events are then merged (mergeByKey), the
+	// notes put in order by buckets (sortByKey).
 	for _, k := range specs {
 		c.maxLit, c.spec = k.MaxIllumination, k
 		if err := c.add(k.Kind); err != nil {
@@ -426,7 +427,8 @@ type collector struct {
 	// chunk's buffers, reused from chunk to chunk)
 	xsBuf *[][]astro.Crossing
 
-	noonsByDate map[time.Time]astro.Transit // the Sun's transits by local date, computed once (noonOf)
+	transits    []astro.Transit             // the Sun's transits over first..last, computed once (sunTransits)
+	noonsByDate map[time.Time]astro.Transit // the same by local date (noonOf)
 	zc          *zoneCache                  // see zone
 }
 
@@ -812,8 +814,7 @@ func (c *collector) nextMidnight(d time.Time) time.Time {
 // when the date has none.
 func (c *collector) noonOf(d time.Time) (astro.Transit, bool, error) {
 	if c.noonsByDate == nil {
-		from, to := c.span(0)
-		ts, err := c.sky.eph.SunTransits(c.p.Observer, from, to)
+		ts, err := c.sunTransits()
 		if err != nil {
 			return astro.Transit{}, false, err
 		}
@@ -824,6 +825,20 @@ func (c *collector) noonOf(d time.Time) (astro.Transit, bool, error) {
 	}
 	tr, ok := c.noonsByDate[d]
 	return tr, ok, nil
+}
+
+// sunTransits returns the Sun's upper transits over the local dates
+// first..last, computed once for the solar-noon kind and noonOf.
+func (c *collector) sunTransits() ([]astro.Transit, error) {
+	if c.transits == nil {
+		from, to := c.span(0)
+		ts, err := c.sky.eph.SunTransits(c.p.Observer, from, to)
+		if err != nil {
+			return nil, err
+		}
+		c.transits = ts
+	}
+	return c.transits, nil
 }
 
 // upAtNoon reports whether the Sun at the transit tr is up over a flat
@@ -1078,8 +1093,7 @@ func (s *Sky) Profiles(p Place, first, last time.Time) ([]Profile, error) {
 // noons adds the upper transit of every date, with the Sun's altitude; it
 // exists in polar night too.
 func (c *collector) noons(k config.Kind) error {
-	from, to := c.span(0)
-	ts, err := c.sky.eph.SunTransits(c.p.Observer, from, to)
+	ts, err := c.sunTransits()
 	if err != nil {
 		return err
 	}

@@ -427,7 +427,7 @@ type collector struct {
 	// chunk's buffers, reused from chunk to chunk)
 	xsBuf *[][]astro.Crossing
 
-	transits    []astro.Transit             // the Sun's transits over first..last, computed once (sunTransits)
+	transits    []astro.Transit             // the Sun's transits over first-1..last, computed once (sunTransits)
 	noonsByDate map[time.Time]astro.Transit // the same by local date (noonOf)
 	zc          *zoneCache                  // see zone
 }
@@ -828,10 +828,11 @@ func (c *collector) noonOf(d time.Time) (astro.Transit, bool, error) {
 }
 
 // sunTransits returns the Sun's upper transits over the local dates
-// first..last, computed once for the solar-noon kind and noonOf.
+// first-1..last, computed once for the solar-noon kind, noonOf and
+// noonClear (which starts from the date before first).
 func (c *collector) sunTransits() ([]astro.Transit, error) {
 	if c.transits == nil {
-		from, to := c.span(0)
+		from, to := midnight(c.first.AddDate(0, 0, -1), c.p.Location), midnight(c.last.AddDate(0, 0, 1), c.p.Location)
 		ts, err := c.sky.eph.SunTransits(c.p.Observer, from, to)
 		if err != nil {
 			return nil, err
@@ -863,8 +864,7 @@ func (c *collector) noonClear(k config.Kind) error {
 	if err != nil {
 		return err
 	}
-	from, to := midnight(c.first.AddDate(0, 0, -1), c.p.Location), midnight(c.last.AddDate(0, 0, 1), c.p.Location)
-	noons, err := c.sky.eph.SunTransits(c.p.Observer, from, to)
+	noons, err := c.sunTransits()
 	if err != nil {
 		return err
 	}

@@ -366,7 +366,7 @@ func (e *Encoder) build(c *feed.Calendar) (*ics.Calendar, int, error) {
 	}
 
 	cal.Components = slices.Grow(cal.Components, len(c.Entries))
-	e.newUIDs(len(c.Entries))
+	e.seen.reset(len(c.Entries))
 	for i := range c.Entries {
 		ev, err := e.entry(i, i, &c.Entries[i])
 		if err != nil {
@@ -377,10 +377,6 @@ func (e *Encoder) build(c *feed.Calendar) (*ics.Calendar, int, error) {
 	}
 	return cal, w.size(cal), nil
 }
-
-// newUIDs empties the set of UIDs seen, for a calendar (or a streamed
-// chunk) of n entries.
-func (e *Encoder) newUIDs(n int) { e.seen.reset(n) }
 
 // uidSet is a set of UIDs for the duplicate check: an open-addressing
 // table (linear probing, at most half full) of indices into the UIDs

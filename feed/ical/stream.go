@@ -86,7 +86,7 @@ func (s *Stream) Write(entries []feed.Entry) error {
 		w.events = make([]vevent, len(entries))
 	}
 	w.events = w.events[:len(entries)]
-	e.newUIDs(len(entries))
+	e.seen.reset(len(entries))
 	// A caller may reuse the memory of one batch's lists of categories
 	// for the next one's: lists are known by their arrays within a batch.
 	clear(w.catRecent)

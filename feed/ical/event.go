@@ -443,17 +443,11 @@ func load64(s string, i int) uint64 {
 		uint64(s[4])<<32 | uint64(s[5])<<40 | uint64(s[6])<<48 | uint64(s[7])<<56
 }
 
-// hasLess reports whether an octet of x is below n (n ≤ 128).
-func hasLess(x uint64, n byte) bool { return (x-ones*uint64(n))&^x&highs != 0 }
-
-// hasByte reports whether an octet of x is c.
-func hasByte(x uint64, c byte) bool { return hasLess(x^(ones*uint64(c)), 1) }
-
 // escapeMask has a high bit set in the octets of x that escapeText
-// escapes (backslash, semicolon, comma, newline: the four hasByte tests in
-// one), and possibly in octets above the first of them (a borrow);
-// its lowest set bit is always in the first such octet, and no bit is
-// set when there is none.
+// escapes (backslash, semicolon, comma, newline: four hasByte tests of
+// fastpath_test.go in one), and possibly in octets above the first of
+// them (a borrow); its lowest set bit is always in the first such octet,
+// and no bit is set when there is none.
 func escapeMask(x uint64) uint64 {
 	a, b, c, d := x^(ones*'\\'), x^(ones*';'), x^(ones*','), x^(ones*'\n')
 	return ((a-ones)&^a | (b-ones)&^b | (c-ones)&^c | (d-ones)&^d) & highs

@@ -141,6 +141,13 @@ func TestContentLineShort(t *testing.T) {
 	}
 }
 
+// hasLess reports whether an octet of x is below n (n ≤ 128): the
+// one-test form escapeMask, escapeCleanMask and cleanMask are built from.
+func hasLess(x uint64, n byte) bool { return (x-ones*uint64(n))&^x&highs != 0 }
+
+// hasByte reports whether an octet of x is c.
+func hasByte(x uint64, c byte) bool { return hasLess(x^(ones*uint64(c)), 1) }
+
 // TestWordTests: the 8-octet tests agree with octet-wise ones, for random
 // words and words built from the octets around the thresholds.
 func TestWordTests(t *testing.T) {

@@ -9,6 +9,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"net/http"
 	"path"
 	"runtime"
 	"strconv"
@@ -37,7 +38,10 @@ type asset struct {
 	etag        []string // strong: the quoted checksum
 	gzETag      []string // the gzip variant's own strong ETag
 	disposition []string // inline; filename=..., for .ics only
-	cors        bool
+	// lastModified is modTime as http.ServeContent writes it; nil when
+	// ServeContent leaves it out (zero or the Unix epoch).
+	lastModified []string
+	cors         bool
 }
 
 // minGzip is the smallest body worth compressing.
@@ -117,6 +121,9 @@ func assetOf(name, contentType string, data []byte, mod time.Time, sum string, g
 	a.contentType = hdr(contentTypeFor(name, contentType))
 	a.etag = hdr(`"` + a.sum + `"`)
 	a.gzETag = hdr(`"` + a.sum + `-gz"`)
+	if !mod.IsZero() && !mod.Equal(time.Unix(0, 0)) {
+		a.lastModified = hdr(mod.UTC().Format(http.TimeFormat))
+	}
 	ext := path.Ext(name)
 	if ext == ".ics" {
 		a.disposition = hdr(`inline; filename="` + path.Base(name) + `"`)

@@ -239,7 +239,7 @@ func (s *Server) serveAsset(w http.ResponseWriter, r *http.Request, a *asset) {
 		}
 	}
 	if br, ok := body.(*bytes.Reader); ok && unconditional(r) {
-		writeWhole(w, r, a.modTime, br)
+		writeWhole(w, r, a.lastModified, br)
 		return
 	}
 	http.ServeContent(w, r, "", a.modTime, body)
@@ -257,15 +257,16 @@ func unconditional(r *http.Request) bool {
 }
 
 // writeWhole answers an unconditional GET or HEAD with the whole of body as
-// http.ServeContent would (Last-Modified, Accept-Ranges), and with its
-// Content-Length even when the body is the gzip form (ServeContent leaves
-// it out when Content-Encoding is set, so such a response went chunked).
+// http.ServeContent would (Last-Modified, formatted once per asset, and
+// Accept-Ranges), and with its Content-Length even when the body is the
+// gzip form (ServeContent leaves it out when Content-Encoding is set, so
+// such a response went chunked).
 // The body is written with one call: ServeContent's io.CopyN allocated a
 // 32 kB copy buffer for every response.
-func writeWhole(w http.ResponseWriter, r *http.Request, mod time.Time, body *bytes.Reader) {
+func writeWhole(w http.ResponseWriter, r *http.Request, lastModified []string, body *bytes.Reader) {
 	h := w.Header()
-	if !mod.IsZero() && !mod.Equal(time.Unix(0, 0)) {
-		h["Last-Modified"] = []string{mod.UTC().Format(http.TimeFormat)}
+	if lastModified != nil {
+		h["Last-Modified"] = lastModified
 	}
 	h["Accept-Ranges"] = hdrBytes
 	h["Content-Length"] = []string{strconv.Itoa(body.Len())}

@@ -276,6 +276,7 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 	}
 	days := c.Days
 	first, last := days[0].Date, days[len(days)-1].Date
+	today := todayIndex(c.Today, days)
 	v := &chartView{
 		ID:         "chart-" + id,
 		Title:      chartTitle(siteName, first, last),
@@ -289,11 +290,11 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 		Marks:      markViews(c.Marks, c.Location, first, last),
 		Thresholds: thresholdViews(days, c.Levels),
 		Phases:     phaseViews(c.Phases, c.Location, first, last),
-		Today:      todayMark(c.Today, days),
+		Today:      todayMark(today, days),
 	}
 	ahead := days // the summary speaks of the year from today
-	if i := todayIndex(c.Today, days); i > 0 {
-		ahead = days[i:]
+	if today > 0 {
+		ahead = days[today:]
 	}
 	v.Summary = chartSummary(ahead)
 	for _, t := range v.Thresholds {
@@ -508,12 +509,9 @@ func chartDate(t, first, last time.Time) string {
 	return t.Format("2 Jan")
 }
 
-// todayMark is the line at today's date, nil when it is not in the chart.
-func todayMark(today time.Time, days []ChartDay) *todayView {
-	if today.IsZero() {
-		return nil
-	}
-	i := todayIndex(today, days)
+// todayMark is the line at days[i], today's date (see todayIndex); nil when
+// today is not in the chart (i < 0).
+func todayMark(i int, days []ChartDay) *todayView {
 	if i < 0 {
 		return nil
 	}

@@ -218,25 +218,21 @@ func (s *Server) serveAsset(w http.ResponseWriter, r *http.Request, a *asset) {
 	if a.disposition != nil {
 		h["Content-Disposition"] = a.disposition
 	}
-	var body io.ReadSeeker
 	if a.gz != nil {
 		h["Vary"] = hdrVary
-		if acceptsGzip(r.Header.Get("Accept-Encoding")) {
-			body = bytes.NewReader(a.gz)
-			h["Etag"] = a.gzETag
-			h["Content-Encoding"] = hdrGzip
-		} else {
-			h["Etag"] = a.etag
-		}
-	} else {
-		h["Etag"] = a.etag
 	}
-	if body == nil {
-		if a.data == nil && a.gz != nil {
-			body = &gunzipReader{gz: a.gz} // an ad-hoc feed keeps only its gzip form
-		} else {
-			body = bytes.NewReader(a.data)
-		}
+	var body io.ReadSeeker
+	switch {
+	case a.gz != nil && acceptsGzip(r.Header.Get("Accept-Encoding")):
+		body = bytes.NewReader(a.gz)
+		h["Etag"] = a.gzETag
+		h["Content-Encoding"] = hdrGzip
+	case a.data == nil && a.gz != nil:
+		body = &gunzipReader{gz: a.gz} // an ad-hoc feed keeps only its gzip form
+		h["Etag"] = a.etag
+	default:
+		body = bytes.NewReader(a.data)
+		h["Etag"] = a.etag
 	}
 	if br, ok := body.(*bytes.Reader); ok && unconditional(r) {
 		writeWhole(w, r, a.lastModified, br)

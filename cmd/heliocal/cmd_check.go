@@ -66,18 +66,12 @@ type checkProblem struct {
 }
 
 type checkSite struct {
-	ID        string  `json:"id"`
-	Name      string  `json:"name"`
-	Latitude  float64 `json:"latitude"`
-	Longitude float64 `json:"longitude"`
-	Elevation float64 `json:"elevation_m"`
-	Horizon   float64 `json:"horizon_deg"`
-	// Skyline is the horizon per direction ([azimuth, altitude] points),
-	// SkylineFile the CSV file it was read from.
-	Skyline          [][2]float64 `json:"skyline,omitempty"`
-	SkylineFile      string       `json:"skyline_file,omitempty"`
-	TimeZone         string       `json:"timezone"`
-	TimeZoneInferred bool         `json:"timezone_inferred"`
+	ID string `json:"id"`
+	sitePlace
+	// SkylineFile is the CSV file the skyline was read from.
+	SkylineFile      string `json:"skyline_file,omitempty"`
+	TimeZone         string `json:"timezone"`
+	TimeZoneInferred bool   `json:"timezone_inferred"`
 }
 
 // horizonText is a site's horizon in the table: "0°", "1.5°", or
@@ -183,8 +177,7 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 	r := &checkReport{Configuration: src.String(), Valid: true, Sites: []checkSite{}, Feeds: []checkFeed{}, Warnings: []string{}}
 	var notes []string
 	for _, s := range cfg.Sites {
-		r.Sites = append(r.Sites, checkSite{ID: s.ID, Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude,
-			Elevation: s.Elevation, Horizon: s.Horizon, Skyline: s.Skyline, SkylineFile: s.HorizonFile,
+		r.Sites = append(r.Sites, checkSite{ID: s.ID, sitePlace: placeOf(&s), SkylineFile: s.HorizonFile,
 			TimeZone: s.TimeZone.Name(), TimeZoneInferred: s.ZoneInferred})
 	}
 	notes = zoneNotes(cfg, now)

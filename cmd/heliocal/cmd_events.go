@@ -362,23 +362,33 @@ type jsonNote struct {
 	Detail string `json:"detail,omitempty"`
 }
 
-type jsonSite struct {
+// sitePlace is where a site is, as the JSON of events and of check give it.
+type sitePlace struct {
 	Name      string  `json:"name"`
 	Latitude  float64 `json:"latitude"`
 	Longitude float64 `json:"longitude"`
 	Elevation float64 `json:"elevation_m"`
 	Horizon   float64 `json:"horizon_deg"`
 	// Skyline is the horizon per direction, [azimuth, altitude] points.
-	Skyline  [][2]float64 `json:"skyline,omitempty"`
-	TimeZone string       `json:"timezone"`
-	From     string       `json:"from"`
-	To       string       `json:"to"`
+	Skyline [][2]float64 `json:"skyline,omitempty"`
+}
+
+func placeOf(s *config.Site) sitePlace {
+	return sitePlace{Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation,
+		Horizon: s.Horizon, Skyline: s.Skyline}
+}
+
+type jsonSite struct {
+	sitePlace
+	TimeZone string `json:"timezone"`
+	From     string `json:"from"`
+	To       string `json:"to"`
 }
 
 // siteJSON is the site of a listing of the dates from..to.
 func siteJSON(s *config.Site, from, to time.Time) jsonSite {
-	return jsonSite{Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation, Horizon: s.Horizon,
-		Skyline: s.Skyline, TimeZone: s.TimeZone.String(), From: from.Format(time.DateOnly), To: to.Format(time.DateOnly)}
+	return jsonSite{sitePlace: placeOf(s), TimeZone: s.TimeZone.String(),
+		From: from.Format(time.DateOnly), To: to.Format(time.DateOnly)}
 }
 
 func toJSONEvent(e feed.Event) jsonEvent {

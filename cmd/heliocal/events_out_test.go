@@ -69,7 +69,7 @@ func TestEventsJSONStreamedAsEncoder(t *testing.T) {
 	for _, e := range events {
 		doc.Events = append(doc.Events, toJSONEvent(e))
 	}
-	doc.Site = jsonSite{Name: site.Name, Latitude: 69.65, Longitude: 18.96, TimeZone: "Europe/Oslo", From: "2098-06-01", To: "2099-09-30"}
+	doc.Site = jsonSite{sitePlace: sitePlace{Name: site.Name, Latitude: 69.65, Longitude: 18.96}, TimeZone: "Europe/Oslo", From: "2098-06-01", To: "2099-09-30"}
 	var want bytes.Buffer
 	enc := json.NewEncoder(&want)
 	enc.SetIndent("", "  ")

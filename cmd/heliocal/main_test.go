@@ -186,6 +186,9 @@ func TestEventsBadInput(t *testing.T) {
 	}{
 		{"latitude", []string{"events", "--lat", "95", "--lon", "0"}, "--lat: 95"},
 		{"longitude", []string{"events", "--lat", "0", "--lon", "-200"}, "--lon: -200"},
+		// README: "--lat and --lon are both required (a missing one is an error, never 0°)".
+		{"missing longitude", []string{"events", "--lat", "48.2"}, "--lon: missing"},
+		{"missing latitude", []string{"events", "--lon", "16.4"}, "--lat: missing"},
 		{"zone", []string{"events", "--lat", "0", "--lon", "0", "--tz", "Mars/Olympus"}, "Mars/Olympus"},
 		{"kind", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "sunrize"}, "sunrize"},
 		{"kind twice", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "sunrise,sunset,sunrise"}, `--kinds: "sunrise,sunset,sunrise": "sunrise" listed twice`},

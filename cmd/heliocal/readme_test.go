@@ -4,6 +4,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"os"
+	"regexp"
 	"slices"
 	"strings"
 	"testing"
@@ -228,5 +229,41 @@ func TestReadmeDemoSites(t *testing.T) {
 		if !strings.Contains(section, "**"+s.Name+"**") {
 			t.Errorf("README's built-in demo does not list site %s (%s)", s.ID, s.Name)
 		}
+	}
+}
+
+// The README's polar-night note is what the command prints: at 69.65° N
+// (18.96° E, Europe/Oslo) on 21 December 2027 `--kinds sunrise` lists no
+// event and one note, the README's. The Sun's highest altitude there that
+// day is about 90° − 69.65° − 23.44° = −3.1°: it does not rise (common
+// practice: noon altitude 90° − latitude + declination).
+func TestReadmePolarNightNote(t *testing.T) {
+	readme, err := os.ReadFile("../../README.md")
+	if err != nil {
+		t.Fatal(err)
+	}
+	m := regexp.MustCompile("At 69\\.65° N on 21 December `--kinds sunrise` lists no\\s+event and `notes` says `(\\{[^`]*\\})`").FindSubmatch(readme)
+	if m == nil {
+		t.Fatal("README: the polar-night note is not where this test looks for it")
+	}
+	var want map[string]any
+	if err := json.Unmarshal(m[1], &want); err != nil {
+		t.Fatal(err)
+	}
+	code, out, errOut := runCLI(t, "events", "--lat", "69.65", "--lon", "18.96", "--tz", "Europe/Oslo",
+		"--from", "2027-12-21", "--to", "2027-12-21", "--kinds", "sunrise", "--format", "json")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	var got struct{ Events, Notes []map[string]any }
+	if err := json.Unmarshal([]byte(out), &got); err != nil {
+		t.Fatal(err)
+	}
+	if len(got.Events) != 0 || len(got.Notes) != 1 {
+		t.Fatalf("printed %d events and %d notes, want none and one: %s", len(got.Events), len(got.Notes), out)
+	}
+	samePrinted(t, "note", want, got.Notes[0])
+	if len(got.Notes[0]) != len(want) {
+		t.Errorf("note %v has fields the README does not show: %v", got.Notes[0], want)
 	}
 }

@@ -425,10 +425,9 @@ func (c shownClock) appendMinute(b []byte) []byte {
 }
 
 // appendSecond appends the clock to the second and the zone, as
-// appendClock writes it.
+// localClock writes it.
 func (c shownClock) appendSecond(b []byte) []byte {
-	b = append(b, byte('0'+c.h/10), byte('0'+c.h%10), ':', byte('0'+c.m/10), byte('0'+c.m%10), ':', byte('0'+c.s/10), byte('0'+c.s%10), ' ')
-	return append(b, c.zone...)
+	return appendClockZone(b, c.h, c.m, c.s, c.zone)
 }
 
 // lightingText is the text of a lighting kind's entries that is the same

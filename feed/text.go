@@ -31,14 +31,16 @@ func dirString(d astro.Direction) string {
 // localClock formats an instant as site-local clock time with the zone
 // abbreviation, e.g. "06:47:12 CET".
 func localClock(t time.Time, loc *time.Location) string {
-	return string(appendClock(make([]byte, 0, 16), t, loc))
-}
-
-// appendClock appends localClock(t, loc) to b.
-func appendClock(b []byte, t time.Time, loc *time.Location) []byte {
 	lt := ToSecond(t).In(loc)
 	h, m, sec := lt.Clock()
 	zone, _ := lt.Zone()
+	return string(appendClockZone(make([]byte, 0, 16), h, m, sec, zone))
+}
+
+// appendClockZone appends a clock to the second and a zone's
+// abbreviation, "06:47:12 CET": the one way the descriptions write an
+// instant (localClock, zoneCache.appendClock, the lamp periods).
+func appendClockZone(b []byte, h, m, sec int, zone string) []byte {
 	b = append(b, byte('0'+h/10), byte('0'+h%10), ':', byte('0'+m/10), byte('0'+m%10), ':', byte('0'+sec/10), byte('0'+sec%10), ' ')
 	return append(b, zone...)
 }
@@ -91,14 +93,12 @@ func (z *zoneCache) date(t time.Time) time.Time {
 	return time.Unix(z.day(t)*secondsPerDay, 0).UTC()
 }
 
-// appendClock appends localClock(t, z.loc) to b.
+// appendClock appends localClock(t, z.loc) to b, the zone looked up in z.
 func (z *zoneCache) appendClock(b []byte, t time.Time) []byte {
 	u := ToSecond(t).Unix()
 	name, off := z.at(u)
 	s := daySeconds(u + off)
-	h, m, sec := s/3600, s/60%60, s%60
-	b = append(b, byte('0'+h/10), byte('0'+h%10), ':', byte('0'+m/10), byte('0'+m%10), ':', byte('0'+sec/10), byte('0'+sec%10), ' ')
-	return append(b, name...)
+	return appendClockZone(b, s/3600, s/60%60, s%60, name)
 }
 
 // appendDayMark appends DayMark(t, d, z.loc) to b.

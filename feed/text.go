@@ -103,7 +103,12 @@ func (z *zoneCache) appendClock(b []byte, t time.Time) []byte {
 
 // appendDayMark appends DayMark(t, d, z.loc) to b.
 func (z *zoneCache) appendDayMark(b []byte, t, d time.Time) []byte {
-	n := z.day(ToSecond(t)) - floorDiv(d.Unix(), secondsPerDay)
+	return appendDays(b, z.day(ToSecond(t))-floorDiv(d.Unix(), secondsPerDay))
+}
+
+// appendDays appends the mark of an instant n local dates after the date
+// it is listed under (see DayMark): nothing for 0, " +1 day", " −2 days".
+func appendDays(b []byte, n int64) []byte {
 	switch {
 	case n == 0:
 		return b
@@ -156,18 +161,7 @@ func NightOf(d time.Time) string {
 // day"): written after the clock time of an event listed under another date,
 // such as the after-midnight part of a night.
 func DayMark(t, d time.Time, loc *time.Location) string {
-	n := int(math.Round(localDate(ToSecond(t), loc).Sub(d).Hours() / 24))
-	switch {
-	case n == 0:
-		return ""
-	case n == 1:
-		return " +1 day"
-	case n > 1:
-		return fmt.Sprintf(" +%d days", n)
-	case n == -1:
-		return " −1 day"
-	}
-	return fmt.Sprintf(" −%d days", -n)
+	return string(appendDays(nil, int64(math.Round(localDate(ToSecond(t), loc).Sub(d).Hours()/24))))
 }
 
 // twoDigits writes 0..99 with a leading zero.

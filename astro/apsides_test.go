@@ -18,17 +18,7 @@ func TestApsidesAgainstDE405(t *testing.T) {
 	var maxR float64
 	n := 0
 	for _, r := range readCSV(t, "apsides-de405.csv") {
-		year, _ := strconv.Atoi(r["year"])
-		apsis := Perihelion
-		if r["kind"] == "aphelion" {
-			apsis = Aphelion
-		}
-		got, dist, err := apsis(year)
-		if err != nil {
-			t.Fatal(err)
-		}
-		jde, _ := JulianEphemerisDay(got)
-		d := (jde - mustFloat(t, r["tt_jd"])) * secondsPerDay
+		year, d, dist := apsisMiss(t, r)
 		dr := math.Abs(dist - mustFloat(t, r["distance_au"]))
 		sum.add(d)
 		maxR = max(maxR, dr)
@@ -57,17 +47,7 @@ func TestApsidesAgainstDE405(t *testing.T) {
 func TestApsidesAgainstSwissEphemeris(t *testing.T) {
 	sum := summary{name: "apsides vs Swiss Ephemeris DE431 files (TT)"}
 	for _, r := range readCSV(t, "apsides-de431-swisseph.csv") {
-		year, _ := strconv.Atoi(r["year"])
-		apsis := Perihelion
-		if r["kind"] == "aphelion" {
-			apsis = Aphelion
-		}
-		got, _, err := apsis(year)
-		if err != nil {
-			t.Fatal(err)
-		}
-		jde, _ := JulianEphemerisDay(got)
-		d := (jde - mustFloat(t, r["tt_jd"])) * secondsPerDay
+		year, d, _ := apsisMiss(t, r)
 		sum.add(d)
 		if math.Abs(d) > 360 {
 			t.Errorf("%d %s: miss %.1f s (TT) > 360 s (%s)", year, r["kind"], d, r["source"])
@@ -80,4 +60,25 @@ func TestApsidesAgainstSwissEphemeris(t *testing.T) {
 	if m := sum.abs[len(sum.abs)/2]; m > 15 {
 		t.Errorf("median miss %.1f s > 15 s", m)
 	}
+}
+
+// apsisMiss computes the apsis of the table row r (columns year, kind,
+// tt_jd) and returns its year, the miss in seconds of TT and the distance
+// in au.
+func apsisMiss(t *testing.T, r map[string]string) (year int, miss, dist float64) {
+	t.Helper()
+	year, err := strconv.Atoi(r["year"])
+	if err != nil {
+		t.Fatalf("year %q: %v", r["year"], err)
+	}
+	apsis := Perihelion
+	if r["kind"] == "aphelion" {
+		apsis = Aphelion
+	}
+	got, dist, err := apsis(year)
+	if err != nil {
+		t.Fatal(err)
+	}
+	jde, _ := JulianEphemerisDay(got)
+	return year, (jde - mustFloat(t, r["tt_jd"])) * secondsPerDay, dist
 }

@@ -97,21 +97,13 @@ var nutationTable = [...]nutationTerm{
 // radians, for the Julian Ephemeris Day jde.
 func nutationRad(jde float64) (dpsi, deps float64) {
 	T := (jde - J2000) / julianCentury
-	// Fundamental arguments, degrees (Meeus eq. after 22.1).
-	D := 297.85036 + T*(445267.111480+T*(-0.0019142+T/189474))
-	M := 357.52772 + T*(35999.050340+T*(-0.0001603-T/300000))
-	Mp := 134.96298 + T*(477198.867398+T*(0.0086972+T/56250))
-	F := 93.27191 + T*(483202.017538+T*(-0.0036825+T/327270))
-	Om := 125.04452 + T*(-1934.136261+T*(0.0020708+T/450000))
 	// Each term's argument is a sum of small multiples (−3..3) of the five
 	// fundamental arguments, so its sine and cosine are products of the
 	// arguments' powers on the unit circle: five sines and cosines per call
 	// instead of 63.
 	var pw [5][7]complex128 // pw[a][n+3] = e^{i n x_a}
-	for a, x := range [5]float64{D, M, Mp, F, Om} {
-		// reduced as x − 360·⌊x/360⌋: within an ulp of x (1e-10° at most
-		// over 1800–2200), where math.Mod's exact reduction costs a loop
-		sx, cx := math.Sincos((x - 360*math.Floor(x/360)) * deg2rad)
+	for a, x := range nutationArgs(T) {
+		sx, cx := math.Sincos(reduceDeg(x) * deg2rad)
 		z := complex(cx, sx)
 		pw[a][3] = 1
 		for n := 1; n <= 3; n++ {
@@ -128,6 +120,23 @@ func nutationRad(jde float64) (dpsi, deps float64) {
 	}
 	return s * 1e-4 * arcsec2rad, c * 1e-4 * arcsec2rad
 }
+
+// nutationArgs returns the fundamental arguments D, M, M′, F and Ω
+// (degrees) at T Julian centuries from J2000 (Meeus eq. after 22.1).
+func nutationArgs(T float64) [5]float64 {
+	return [5]float64{
+		297.85036 + T*(445267.111480+T*(-0.0019142+T/189474)),
+		357.52772 + T*(35999.050340+T*(-0.0001603-T/300000)),
+		134.96298 + T*(477198.867398+T*(0.0086972+T/56250)),
+		93.27191 + T*(483202.017538+T*(-0.0036825+T/327270)),
+		125.04452 + T*(-1934.136261+T*(0.0020708+T/450000)),
+	}
+}
+
+// reduceDeg reduces x (degrees) to [0, 360) as x − 360·⌊x/360⌋: within an
+// ulp of x (1e-10° at most over 1800–2200), where norm360's exact
+// reduction by math.Mod costs a loop.
+func reduceDeg(x float64) float64 { return x - 360*math.Floor(x/360) }
 
 // nutationDaily returns nutationRad at each of jdes, instants about a day
 // apart in increasing order (the Sun's daily samples at 0h UTC): each
@@ -147,15 +156,9 @@ func nutationDaily(jdes []float64) (dpsi, deps []float64) {
 	}
 	const h = 1 / julianCentury // a day in centuries
 	// the fundamental arguments (degrees) and their rates (degrees per
-	// century) at T, Meeus eq. after 22.1
+	// century, the derivatives of nutationArgs) at T
 	args := func(T float64) (x, r [5]float64) {
-		x = [5]float64{
-			297.85036 + T*(445267.111480+T*(-0.0019142+T/189474)),
-			357.52772 + T*(35999.050340+T*(-0.0001603-T/300000)),
-			134.96298 + T*(477198.867398+T*(0.0086972+T/56250)),
-			93.27191 + T*(483202.017538+T*(-0.0036825+T/327270)),
-			125.04452 + T*(-1934.136261+T*(0.0020708+T/450000)),
-		}
+		x = nutationArgs(T)
 		r = [5]float64{
 			445267.111480 + T*(2*-0.0019142+3*T/189474),
 			35999.050340 + T*(2*-0.0001603-3*T/300000),
@@ -184,7 +187,7 @@ func nutationDaily(jdes []float64) (dpsi, deps []float64) {
 			mult := [5]float64{float64(m.d), float64(m.m), float64(m.mp), float64(m.f), float64(m.om)}
 			var a, r float64 // the argument (reduced, degrees) and its rate (degrees per century)
 			for j := range 5 {
-				a += mult[j] * (ru.x[j] - 360*math.Floor(ru.x[j]/360))
+				a += mult[j] * reduceDeg(ru.x[j])
 				r += mult[j] * ru.r[j]
 			}
 			r *= deg2rad

@@ -155,51 +155,44 @@ func nutationDaily(jdes []float64) (dpsi, deps []float64) {
 		T[k] = (j - J2000) / julianCentury
 	}
 	const h = 1 / julianCentury // a day in centuries
-	// the fundamental arguments (degrees) and their rates (degrees per
-	// century, the derivatives of nutationArgs) at T
-	args := func(T float64) (x, r [5]float64) {
-		x = nutationArgs(T)
-		r = [5]float64{
-			445267.111480 + T*(2*-0.0019142+3*T/189474),
-			35999.050340 + T*(2*-0.0001603-3*T/300000),
-			477198.867398 + T*(2*0.0086972+3*T/56250),
-			483202.017538 + T*(2*-0.0036825+3*T/327270),
-			-1934.136261 + T*(2*0.0020708+3*T/450000),
-		}
-		return x, r
-	}
-	type run struct {
-		k0, k1 int
-		x, r   [5]float64
-	}
-	var runs []run
-	for k0 := 0; k0 < n; k0 += sunChebDays {
-		x, r := args(T[k0])
-		runs = append(runs, run{k0, min(k0+sunChebDays, n), x, r})
-	}
 	// per run, every term's sine and cosine rotated together from sample
 	// to sample: the terms' rotations are independent of one another
 	const nt = len(nutationTable)
 	var S, C, sr, cr [nt]float64
-	for _, ru := range runs {
+	for k0 := 0; k0 < n; k0 += sunChebDays {
+		// the fundamental arguments (degrees, reduced) and their rates
+		// (degrees per century, the derivatives of nutationArgs) at the
+		// run's start
+		T0 := T[k0]
+		x := nutationArgs(T0)
+		for j := range x {
+			x[j] = reduceDeg(x[j])
+		}
+		rate := [5]float64{
+			445267.111480 + T0*(2*-0.0019142+3*T0/189474),
+			35999.050340 + T0*(2*-0.0001603-3*T0/300000),
+			477198.867398 + T0*(2*0.0086972+3*T0/56250),
+			483202.017538 + T0*(2*-0.0036825+3*T0/327270),
+			-1934.136261 + T0*(2*0.0020708+3*T0/450000),
+		}
 		for i := range nutationTable {
 			m := &nutationTable[i]
 			mult := [5]float64{float64(m.d), float64(m.m), float64(m.mp), float64(m.f), float64(m.om)}
 			var a, r float64 // the argument (reduced, degrees) and its rate (degrees per century)
 			for j := range 5 {
-				a += mult[j] * reduceDeg(ru.x[j])
-				r += mult[j] * ru.r[j]
+				a += mult[j] * x[j]
+				r += mult[j] * rate[j]
 			}
 			r *= deg2rad
 			S[i], C[i] = math.Sincos(a * deg2rad)
 			sr[i], cr[i] = math.Sincos(r * h)
 		}
-		for k := ru.k0; k < ru.k1; k++ {
+		for k := k0; k < min(k0+sunChebDays, n); k++ {
 			Tk := T[k]
 			var ps, pc float64
 			for i := range nutationTable {
 				m := &nutationTable[i]
-				if k > ru.k0 {
+				if k > k0 {
 					C[i], S[i] = C[i]*cr[i]-S[i]*sr[i], S[i]*cr[i]+C[i]*sr[i]
 				}
 				ps += (m.s0 + m.s1*Tk) * S[i]

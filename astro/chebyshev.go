@@ -82,13 +82,13 @@ var chebCos = func() (c [sunChebNodes][sunChebNodes]float64) {
 	return c
 }()
 
-// slowNodes returns earthSlow's L, B and R at the nodes of n consecutive
+// slowNodes returns the slow terms' L (not reduced), B and R at the nodes of n consecutive
 // blocks from jde0 (value [v][i·sunChebNodes + j]: node j, at
 // mid + half·xs[j], of block i). Node j of successive blocks lies
 // sunChebDays apart, so each term's cosine is carried from one block to the
 // next by a rotation (as daily does for the fast terms), computed afresh
-// every slowRestart blocks: the values agree with earthSlow's to about
-// 1e-15 of each term's amplitude.
+// every slowRestart blocks: the values agree with the series summed
+// (evalVSOP of slowTerms) to about 1e-15 of each term's amplitude.
 func slowNodes(jde0 float64, n int, xs *[sunChebNodes]float64) (vals [3][]float64) {
 	const slowRestart = 32
 	m := n * sunChebNodes
@@ -253,12 +253,6 @@ func splitVSOP() (slow, fast [3][][]vsopTerm) {
 		}
 	}
 	return slow, fast
-}
-
-// earthSlow is earthHeliocentric without the fast terms (L not reduced).
-func earthSlow(jde float64) (L, B, R float64) {
-	tau := (jde - J2000) / julianMillennium
-	return evalVSOP(slowTerms[0], tau), evalVSOP(slowTerms[1], tau), evalVSOP(slowTerms[2], tau)
 }
 
 // clenshaw evaluates Σₖ cₖ Tₖ(x) − c₀/2 (Clenshaw's recurrence).

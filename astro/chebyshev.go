@@ -41,11 +41,7 @@ type earthSeries struct {
 func newEarthSeries(jde0, jde1 float64) *earthSeries {
 	n := int(math.Floor((jde1-jde0)/sunChebDays)) + 1
 	s := &earthSeries{start: jde0, blocks: make([]chebBlock, n)}
-	var xs [sunChebNodes]float64
-	for j := range xs {
-		xs[j] = math.Cos(math.Pi * (float64(j) + 0.5) / sunChebNodes)
-	}
-	vals := slowNodes(jde0, n, &xs)
+	vals := slowNodes(jde0, n)
 	var f [3][sunChebNodes]float64
 	for i := range s.blocks {
 		blk := &s.blocks[i]
@@ -82,14 +78,15 @@ var chebCos = func() (c [sunChebNodes][sunChebNodes]float64) {
 	return c
 }()
 
-// slowNodes returns the slow terms' L (not reduced), B and R at the nodes of n consecutive
-// blocks from jde0 (value [v][i·sunChebNodes + j]: node j, at
-// mid + half·xs[j], of block i). Node j of successive blocks lies
+// slowNodes returns the slow terms' L (not reduced), B and R at the nodes
+// of n consecutive blocks from jde0 (value [v][i·sunChebNodes + j]: node
+// j, at mid + half·T₁(node j) = mid + half·chebCos[1][j], of block i). Node j of successive blocks lies
 // sunChebDays apart, so each term's cosine is carried from one block to the
 // next by a rotation (as daily does for the fast terms), computed afresh
 // every slowRestart blocks: the values agree with the series summed
 // (evalVSOP of slowTerms) to about 1e-15 of each term's amplitude.
-func slowNodes(jde0 float64, n int, xs *[sunChebNodes]float64) (vals [3][]float64) {
+func slowNodes(jde0 float64, n int) (vals [3][]float64) {
+	xs := &chebCos[1]
 	const slowRestart = 32
 	m := n * sunChebNodes
 	tau := make([]float64, m)

@@ -49,9 +49,16 @@ import (
 func main() {
 	if err := run(); err != nil {
 		fmt.Fprintln(os.Stderr, "loadtest:", err)
+		if errors.As(err, new(badInput)) {
+			os.Exit(2)
+		}
 		os.Exit(1)
 	}
 }
+
+// badInput is an error in the flags, which names the flag and its value:
+// the exit status is 2, as for a flag the flag package cannot parse.
+type badInput struct{ error }
 
 // serverPID is the process started with -start, whose CPU time each run
 // reports (0: unknown).
@@ -85,18 +92,28 @@ func run() error {
 	flag.DurationVar(&c.startupDeadline, "wait", 2*time.Minute, "how long to wait for a started server's /healthz")
 	flag.Parse()
 	if c.feed == "" && c.adhoc == "" {
-		return errors.New("nothing to measure: give -feed and/or -adhoc")
+		return badInput{errors.New("nothing to measure: give -feed and/or -adhoc")}
 	}
-	for _, u := range []string{c.feed, c.adhoc} {
-		if u == "" {
+	for _, f := range [...]struct{ name, url string }{{"feed", c.feed}, {"adhoc", c.adhoc}} {
+		if f.url == "" {
 			continue
 		}
-		if err := loopbackOnly(u); err != nil {
-			return err
+		if err := loopbackOnly(f.url); err != nil {
+			return badInput{fmt.Errorf("-%s: %w", f.name, err)}
 		}
 	}
-	if c.concurrency < 1 || c.adhocConc < 1 || c.requests < 1 || c.adhocRequests < 1 || c.duration <= 0 {
-		return errors.New("-c, -adhoc-c, -n, -adhoc-n and -d must be positive")
+	for _, f := range []struct {
+		name  string
+		bad   bool
+		value any
+	}{
+		{"c", c.concurrency < 1, c.concurrency}, {"adhoc-c", c.adhocConc < 1, c.adhocConc},
+		{"n", c.requests < 1, c.requests}, {"adhoc-n", c.adhocRequests < 1, c.adhocRequests},
+		{"d", c.duration <= 0, c.duration},
+	} {
+		if f.bad {
+			return badInput{fmt.Errorf("-%s %v: must be positive", f.name, f.value)}
+		}
 	}
 
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
@@ -465,7 +482,7 @@ func measureAdhoc(ctx context.Context, c config) error {
 		return err
 	}
 	if u.Query().Has("lat") {
-		return errors.New("-adhoc: leave lat= out of the URL; loadtest varies it")
+		return badInput{fmt.Errorf("-adhoc %q: leave lat= out of the URL; loadtest varies it", c.adhoc)}
 	}
 	name := "ad-hoc feed, a new place per request (cache miss) → 200"
 	if c.adhocCached {

@@ -178,10 +178,7 @@ func toJSONEntry(cal *feed.Calendar, e *feed.Entry) jsonEntry {
 	if f.Note {
 		j.State = stateName(f.State)
 		if strings.HasPrefix(e.Kind, config.KindLighting+":") {
-			j.State = "no-lamps-needed"
-			if f.Short { // lamps needed, none scheduled
-				j.State = "lamps-not-scheduled"
-			}
+			j.State = lampState(f.Short)
 		}
 		if !f.Until.IsZero() {
 			j.Until = f.Until.Format(time.DateOnly)
@@ -293,10 +290,7 @@ func toJSONNote(n feed.Note) jsonNote {
 		j.Detail = feed.NotReachedText(n)
 	}
 	if n.Kind.Name == config.KindLighting {
-		j.State = "no-lamps-needed"
-		if n.Lamp > 0 { // lamps needed, none scheduled
-			j.State = "lamps-not-scheduled"
-		}
+		j.State = lampState(n.Lamp > 0)
 		if !n.Until.IsZero() {
 			j.Until = n.Until.Format(time.DateOnly)
 		}
@@ -503,3 +497,12 @@ func streamEntries(st *ical.Stream, pending, entries []feed.Entry) ([]feed.Entry
 
 // entryBefore is the order of a calendar's entries (feed.CompareEntries).
 func entryBefore(a, b *feed.Entry) bool { return feed.CompareEntries(a, b) < 0 }
+
+// lampState is the JSON state of a lighting note: lamps needed but none
+// scheduled (all under the kind's min_duration), or none needed.
+func lampState(notScheduled bool) string {
+	if notScheduled {
+		return "lamps-not-scheduled"
+	}
+	return "no-lamps-needed"
+}

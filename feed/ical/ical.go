@@ -425,9 +425,10 @@ func (u *uidSet) add(uid string) bool {
 	}
 }
 
-// grow doubles the table and adds the UIDs again.
+// grow doubles the table (reset made it 16 slots or more) and adds the
+// UIDs again.
 func (u *uidSet) grow() {
-	u.slots = make([]int32, 2*max(len(u.slots), 8))
+	u.slots = make([]int32, 2*len(u.slots))
 	mask := uint64(len(u.slots) - 1)
 	for k, uid := range u.uids {
 		i := maphash.String(u.seed, uid) & mask

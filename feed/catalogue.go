@@ -1,6 +1,7 @@
 package feed
 
 import (
+	"cmp"
 	"context"
 	"crypto/sha256"
 	"encoding/hex"
@@ -383,13 +384,13 @@ func sortEntries(es []Entry) []Entry {
 		e := &es[i]
 		keys[i] = sortKey{date: e.Date.Unix(), dateNs: int32(e.Date.Nanosecond()), start: e.Start.Unix(), startNs: int32(e.Start.Nanosecond()), allDay: e.AllDay}
 	}
-	cmp := func(i, j int32) int {
+	order := func(i, j int32) int {
 		a, b := &keys[i], &keys[j]
 		switch {
 		case a.date != b.date:
-			return compareInt(a.date, b.date)
+			return cmp.Compare(a.date, b.date)
 		case a.dateNs != b.dateNs:
-			return compareInt(int64(a.dateNs), int64(b.dateNs))
+			return cmp.Compare(a.dateNs, b.dateNs)
 		case a.allDay != b.allDay:
 			if a.allDay {
 				return -1
@@ -402,15 +403,15 @@ func sortEntries(es []Entry) []Entry {
 		}
 		switch {
 		case a.start != b.start:
-			return compareInt(a.start, b.start)
+			return cmp.Compare(a.start, b.start)
 		case a.startNs != b.startNs:
-			return compareInt(int64(a.startNs), int64(b.startNs))
+			return cmp.Compare(a.startNs, b.startNs)
 		}
 		return strings.Compare(es[i].UID, es[j].UID)
 	}
 	ends := []int32{} // the end of each run but the last
 	for i := int32(1); i < n; i++ {
-		if cmp(i-1, i) > 0 {
+		if order(i-1, i) > 0 {
 			ends = append(ends, i)
 		}
 	}
@@ -424,8 +425,8 @@ func sortEntries(es []Entry) []Entry {
 	for i := range idx {
 		idx[i] = int32(i)
 	}
-	if !byDate(keys, idx, cmp) {
-		mergeRuns(idx, tmp, ends, cmp)
+	if !byDate(keys, idx, order) {
+		mergeRuns(idx, tmp, ends, order)
 	}
 	// es[i] takes the entry at idx[i]: follow each cycle of the permutation
 	for i := range idx {
@@ -446,12 +447,12 @@ func sortEntries(es []Entry) []Entry {
 	return es
 }
 
-// byDate puts the indices idx (0..n-1) in the order of cmp: by a counting
+// byDate puts the indices idx (0..n-1) in the order given by order: by a counting
 // sort of the entries' dates (keys), then each date's few entries by
 // insertion, in time linear in the entries however many runs they come in.
 // It keeps the order of equal entries. It reports false, leaving idx as it
 // is, when the dates are too far apart for one bucket each.
-func byDate(keys []sortKey, idx []int32, cmp func(i, j int32) int) bool {
+func byDate(keys []sortKey, idx []int32, order func(i, j int32) int) bool {
 	lo, hi := keys[0].date, keys[0].date
 	for i := range keys {
 		lo, hi = min(lo, keys[i].date), max(hi, keys[i].date)
@@ -479,11 +480,11 @@ func byDate(keys []sortKey, idx []int32, cmp func(i, j int32) int) bool {
 	for b := range nb {
 		run := idx[starts[b]:starts[b+1]]
 		if len(run) > 32 {
-			slices.SortStableFunc(run, cmp)
+			slices.SortStableFunc(run, order)
 			continue
 		}
 		for j := 1; j < len(run); j++ {
-			for m := j; m > 0 && cmp(run[m], run[m-1]) < 0; m-- {
+			for m := j; m > 0 && order(run[m], run[m-1]) < 0; m-- {
 				run[m], run[m-1] = run[m-1], run[m]
 			}
 		}
@@ -492,9 +493,9 @@ func byDate(keys []sortKey, idx []int32, cmp func(i, j int32) int) bool {
 }
 
 // mergeRuns puts the indices idx (0..n-1, in runs ending at ends, each in
-// the order of cmp) in the order of cmp, using tmp; it keeps the order of
+// the order given by order) in that order, using tmp; it keeps the order of
 // equal entries.
-func mergeRuns(idx, tmp, ends []int32, cmp func(i, j int32) int) {
+func mergeRuns(idx, tmp, ends []int32, order func(i, j int32) int) {
 	startOf := func(r int) int32 {
 		if r == 0 {
 			return 0
@@ -515,7 +516,7 @@ func mergeRuns(idx, tmp, ends []int32, cmp func(i, j int32) int) {
 		lo, mid, hi := startOf(best), ends[best], ends[best+1]
 		i, j, k := lo, mid, lo
 		for ; i < mid && j < hi; k++ {
-			if cmp(idx[j], idx[i]) < 0 {
+			if order(idx[j], idx[i]) < 0 {
 				tmp[k], j = idx[j], j+1
 			} else {
 				tmp[k], i = idx[i], i+1
@@ -540,17 +541,6 @@ var (
 	sortKeys    slicePool[sortKey]
 	sortIndices slicePool[int32]
 )
-
-// compareInt is cmp.Compare for int64.
-func compareInt(a, b int64) int {
-	switch {
-	case a < b:
-		return -1
-	case a > b:
-		return 1
-	}
-	return 0
-}
 
 // summaries adds one all-day entry per date: sunrise, sunset, day length and
 // civil twilight.

@@ -2,7 +2,6 @@ package feed
 
 import (
 	"context"
-	"fmt"
 	"runtime"
 	"slices"
 	"sync"
@@ -41,10 +40,9 @@ const ChunkDays = 184
 // consumes them in order (fn itself is called from the calling goroutine,
 // one chunk at a time); at most one chunk more than the goroutines is held.
 func (s *Sky) EventChunks(ctx context.Context, p Place, specs []config.KindSpec, first, last time.Time, fn func(Chunk) error) error {
-	first, last = civil(first), civil(last)
-	if last.Before(first) {
-		return fmt.Errorf("feed: date range ends (%s) before it starts (%s)",
-			last.Format(time.DateOnly), first.Format(time.DateOnly))
+	first, last, err := dateRange(first, last)
+	if err != nil {
+		return err
 	}
 	// A photoperiod threshold that the whole range never crosses gets one
 	// note for the range, not one per chunk.

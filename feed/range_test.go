@@ -77,3 +77,21 @@ func TestSupportedRangeEnds(t *testing.T) {
 		}
 	}
 }
+
+// A date range that ends before it starts is refused by EventsFor and
+// EventChunks alike, with an error naming both dates.
+func TestRangeEndsBeforeStart(t *testing.T) {
+	s := site(t, "north-field", 47.5, 9.7, "Europe/Zurich")
+	sk := sky(t, "2027-03-01", "2027-03-10")
+	specs := []config.KindSpec{{Kind: mustKinds(t, "sunrise")[0]}}
+	from, to := date("2027-03-05"), date("2027-03-04")
+	want := "feed: date range ends (2027-03-04) before it starts (2027-03-05)"
+	if _, _, err := sk.EventsFor(context.Background(), PlaceOf(s), specs, from, to); err == nil || err.Error() != want {
+		t.Errorf("EventsFor: error %v, want %q", err, want)
+	}
+	called := false
+	err := sk.EventChunks(context.Background(), PlaceOf(s), specs, from, to, func(Chunk) error { called = true; return nil })
+	if err == nil || err.Error() != want || called {
+		t.Errorf("EventChunks: error %v (chunk handed on: %v), want %q", err, called, want)
+	}
+}

@@ -329,11 +329,21 @@ func mergeByKey[T any](xs []T, out []T, keys *[]int64, key func(*T) int64) []T {
 	return out
 }
 
-func (s *Sky) eventsFor(ctx context.Context, p Place, specs []config.KindSpec, first, last time.Time, buf *buffers) ([]Event, []Note, error) {
+// dateRange returns the civil dates of first and last, or an error naming
+// both when the range ends before it starts.
+func dateRange(first, last time.Time) (time.Time, time.Time, error) {
 	first, last = civil(first), civil(last)
 	if last.Before(first) {
-		return nil, nil, fmt.Errorf("feed: date range ends (%s) before it starts (%s)",
+		return first, last, fmt.Errorf("feed: date range ends (%s) before it starts (%s)",
 			last.Format(time.DateOnly), first.Format(time.DateOnly))
+	}
+	return first, last, nil
+}
+
+func (s *Sky) eventsFor(ctx context.Context, p Place, specs []config.KindSpec, first, last time.Time, buf *buffers) ([]Event, []Note, error) {
+	first, last, err := dateRange(first, last)
+	if err != nil {
+		return nil, nil, err
 	}
 	c := &collector{ctx: ctx, sky: s, p: p, first: first, last: last, events: buf.events[:0], notes: buf.notes[:0], xsBuf: &buf.crossings}
 	// room for about every event at once: grown step by step, the buffer

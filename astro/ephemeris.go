@@ -336,7 +336,7 @@ func (e *Ephemeris) AppendSunCrossings(dst [][]Crossing, o Observer, altitudes [
 	if err := e.checkSpan(from, to); err != nil {
 		return nil, err
 	}
-	st := newSite(o)
+	st := e.sites.site(o)
 	a, b := unixSeconds(from), unixSeconds(to)
 	sc := crossingScratch.Get().(*scratch)
 	defer crossingScratch.Put(sc)

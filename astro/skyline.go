@@ -389,37 +389,36 @@ func (e *Ephemeris) sunOverSkyline(o Observer, st *site, sky Skyline, sec float6
 // the part of an eclipse that can be seen from a valley. The span must lie
 // within Coverage().
 func (e *Ephemeris) SunSkylineSpans(o Observer, sky Skyline, from, to time.Time) ([]Span, error) {
-	cs, err := e.SunSkylineCrossings(o, sky, from, to)
+	cs, err := e.SunSkylineCrossings(o, sky, from, to) // checks o and the span
 	if err != nil {
 		return nil, err
 	}
-	st, err := e.query(o, from, from)
-	if err != nil {
-		return nil, err
-	}
-	return spansOver(cs, e.sunOverSkyline(o, st, sky, unixSeconds(from)), from, to), nil
+	return spansOver(cs, from, to, func() bool {
+		return e.sunOverSkyline(o, e.sites.site(o), sky, unixSeconds(from))
+	}), nil
 }
 
 // MoonSkylineSpans is SunSkylineSpans for the Moon (by
 // MoonSkylineCrossings).
 func (e *MoonEphemeris) MoonSkylineSpans(o Observer, sky Skyline, from, to time.Time) ([]Span, error) {
-	cs, err := e.MoonSkylineCrossings(o, sky, from, to)
+	cs, err := e.MoonSkylineCrossings(o, sky, from, to) // checks o and the span
 	if err != nil {
 		return nil, err
 	}
-	st, err := e.query(o, from, from)
-	if err != nil {
-		return nil, err
-	}
-	return spansOver(cs, e.moonOverSkyline(o, st, sky, unixSeconds(from)), from, to), nil
+	return spansOver(cs, from, to, func() bool {
+		return e.moonOverSkyline(o, newSite(o), sky, unixSeconds(from))
+	}), nil
 }
 
 // spansOver turns the crossings cs of [from, to) into the spans over the
-// skyline; up is the state at from, used when there is no crossing (else
-// the first crossing tells it).
-func spansOver(cs []Crossing, up bool, from, to time.Time) []Span {
+// skyline; upAtFrom, called only when there is no crossing (else the first
+// crossing tells it), gives the state at from.
+func spansOver(cs []Crossing, from, to time.Time, upAtFrom func() bool) []Span {
+	var up bool
 	if len(cs) > 0 {
 		up = cs[0].Direction == Setting
+	} else {
+		up = upAtFrom()
 	}
 	var out []Span
 	start := from

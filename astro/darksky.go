@@ -203,13 +203,16 @@ type interval struct{ a, b float64 }
 // order; the Moon is up over the skyline sky when it is not nil.
 func (e *MoonEphemeris) darkEvents(o Observer, st *site, sky Skyline, a, b, maxFraction float64) ([3]bool, []darkEvent) {
 	sinDark := math.Sin(AstronomicalTwilight * deg2rad)
+	var moonUp bool
+	if sky != nil {
+		moonUp = e.moonOverSkyline(o, st, sky, a)
+	} else {
+		moonUp = e.moonUp(o, st, a)
+	}
 	state := [3]bool{
 		e.sun.sun.sinAltitude(st, a) < sinDark,
-		e.moonUp(o, st, a),
+		moonUp,
 		maxFraction > 0 && e.moonFraction(a) >= maxFraction,
-	}
-	if sky != nil {
-		state[1] = e.moonOverSkyline(o, st, sky, a)
 	}
 	if maxFraction == 0 {
 		state[2] = true // any Moon above the horizon is too bright

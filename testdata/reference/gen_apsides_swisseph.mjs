@@ -6,11 +6,13 @@
 // package swisseph-wasm 0.1.0. The Go test (astro/apsides_test.go) reads the
 // committed CSV, so `go test ./...` needs neither node nor the package.
 //
-// Regenerate from the repository root:
+// Regenerate from the repository root (the table is replaced only when the
+// script has finished without error):
 //
 //   d=$(mktemp -d) && (cd "$d" && npm install --no-save swisseph-wasm@0.1.0) &&
 //     cp testdata/reference/gen_apsides_swisseph.mjs "$d"/gen.mjs &&
-//     node "$d"/gen.mjs > testdata/reference/apsides-de431-swisseph.csv
+//     node "$d"/gen.mjs > "$d"/out.csv &&
+//     mv "$d"/out.csv testdata/reference/apsides-de431-swisseph.csv
 //
 // Definitions used with the library: swe_calc for the Earth (SE_EARTH) with
 // SEFLG_HELCTR | SEFLG_TRUEPOS | SEFLG_XYZ | SEFLG_SPEED | SEFLG_J2000 |

@@ -207,6 +207,12 @@ func civil(t time.Time) time.Time {
 	return time.Date(y, m, d, 0, 0, 0, 0, time.UTC)
 }
 
+// daysBetween is the number of dates from the civil date from to the civil
+// date to (00:00 UTC both): 0 when they are the same date.
+func daysBetween(from, to time.Time) int {
+	return int(to.Sub(from).Hours()/24 + 0.5)
+}
+
 // localDate is the site-local date of the instant t, at 00:00 UTC.
 func localDate(t time.Time, loc *time.Location) time.Time {
 	return civil(t.In(loc))
@@ -778,7 +784,7 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 // local midnights that begin the dates first−1..last+2.
 func (c *collector) dayStarts() []time.Time {
 	if c.starts == nil {
-		n := int(c.last.Sub(c.first).Hours()/24+0.5) + 4
+		n := daysBetween(c.first, c.last) + 4
 		c.starts = make([]time.Time, n)
 		// Within one period of the zone (between two clock changes) the
 		// local midnights lie 24 h apart: the next one is the last plus
@@ -812,7 +818,7 @@ func (c *collector) dayStarts() []time.Time {
 func (c *collector) nextMidnight(d time.Time) time.Time {
 	starts := c.dayStarts() // the dates first-1..last+2
 	if base := c.first.AddDate(0, 0, -2); !d.Before(base) {
-		if j := int(d.Sub(base).Hours()/24 + 0.5); j < len(starts) { // d+1 is date first-1+j
+		if j := daysBetween(base, d); j < len(starts) { // d+1 is date first-1+j
 			return starts[j]
 		}
 	}
@@ -992,14 +998,14 @@ func (c *collector) dayEnds(alt float64) ([]time.Time, error) {
 		return th.lateEnds, nil
 	}
 	first := c.first.AddDate(0, 0, -2)
-	late := make([]time.Time, int(c.last.Sub(first).Hours()/24+0.5)+2)
+	late := make([]time.Time, daysBetween(first, c.last)+2)
 	for k := 0; k+1 < len(th.xs); k++ {
 		rise, set := th.xs[k], th.xs[k+1]
 		if rise.Direction != astro.Rising || set.Direction != astro.Setting || set.Time.Sub(rise.Time) >= 24*time.Hour {
 			continue
 		}
 		d := localDate(rise.Time, c.p.Location)
-		i := int(d.Sub(first).Hours()/24 + 0.5)
+		i := daysBetween(first, d)
 		if i < 0 || i >= len(late) || !set.Time.After(c.nextMidnight(d)) {
 			continue
 		}
@@ -1012,7 +1018,7 @@ func (c *collector) dayEnds(alt float64) ([]time.Time, error) {
 // lateEnd returns the sunset after midnight that ends the day of the local
 // date d (first-2..last+1) in the record late of dayEnds, or zero.
 func (c *collector) lateEnd(late []time.Time, d time.Time) time.Time {
-	i := int(d.Sub(c.first.AddDate(0, 0, -2)).Hours()/24 + 0.5)
+	i := daysBetween(c.first.AddDate(0, 0, -2), d)
 	if i < 0 || i >= len(late) {
 		return time.Time{}
 	}
@@ -1040,7 +1046,7 @@ func (c *collector) aboveFrom(alt float64, back int) ([]time.Duration, error) {
 		up = xs[0].Direction == astro.Rising
 		xs = xs[1:]
 	}
-	n := int(c.last.Sub(c.first).Hours()/24+0.5) + 1 + back
+	n := daysBetween(c.first, c.last) + 1 + back
 	lengths := make([]time.Duration, n)
 	cur := from
 	starts := c.dayStarts()

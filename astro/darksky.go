@@ -162,8 +162,8 @@ func (e *MoonEphemeris) DarkWindows(ctx context.Context, o Observer, loc *time.L
 // the Sun's −18° is unchanged (see the top of this file). A skyline at one
 // altitude everywhere gives exactly DarkWindows with that Horizon.
 func (e *MoonEphemeris) DarkSkylineWindows(ctx context.Context, o Observer, sky Skyline, loc *time.Location, first, last time.Time, maxFraction float64) ([]Night, error) {
-	if len(sky) == 0 {
-		return nil, &InputError{"skyline", 0, "needs at least one point"}
+	if err := sky.check(); err != nil {
+		return nil, err
 	}
 	if flat, ok := sky.flat(); ok {
 		o.Horizon = flat

@@ -2,6 +2,7 @@ package astro
 
 import (
 	"context"
+	"errors"
 	"testing"
 	"time"
 )
@@ -169,4 +170,25 @@ func darkSpansBrute(a, b time.Time, sun, moon []Crossing, up0 bool) []Span {
 		out = append(out, Span{Start: open, End: b, Length: b.Sub(open)})
 	}
 	return out
+}
+
+// TestSkylineEmpty: every skyline query refuses a skyline without points
+// with an *InputError naming the skyline.
+func TestSkylineEmpty(t *testing.T) {
+	from := time.Date(2027, 3, 1, 0, 0, 0, 0, time.UTC)
+	e, err := NewMoonEphemeris(from, from.AddDate(0, 0, 3))
+	if err != nil {
+		t.Fatal(err)
+	}
+	o := Observer{Latitude: 46.5, Longitude: 8.0}
+	to := from.AddDate(0, 0, 1)
+	_, errSun := e.sun.SunSkylineCrossings(o, nil, from, to)
+	_, errMoon := e.MoonSkylineCrossings(o, nil, from, to)
+	_, errDark := e.DarkSkylineWindows(context.Background(), o, nil, time.UTC, from, from, 0)
+	for name, err := range map[string]error{"SunSkylineCrossings": errSun, "MoonSkylineCrossings": errMoon, "DarkSkylineWindows": errDark} {
+		var ie *InputError
+		if !errors.As(err, &ie) || ie.Field != "skyline" {
+			t.Errorf("%s: error %v, want an *InputError for the skyline", name, err)
+		}
+	}
 }

@@ -115,8 +115,8 @@ const skylineStep = 30.0
 // and the pairs between are the times it is hidden behind the skyline. The
 // span must lie within Coverage().
 func (e *Ephemeris) SunSkylineCrossings(o Observer, sky Skyline, from, to time.Time) ([]Crossing, error) {
-	if len(sky) == 0 {
-		return nil, &InputError{"skyline", 0, "needs at least one point"}
+	if err := sky.check(); err != nil {
+		return nil, err
 	}
 	lo, hi := skylineBounds(o, sky)
 	if lo == hi { // one altitude everywhere: the ordinary search
@@ -252,8 +252,8 @@ func (e *MoonEphemeris) MoonSkylineCrossings(o Observer, sky Skyline, from, to t
 // search, or (nil site) the result of MoonRiseSet for a skyline at one
 // altitude everywhere.
 func (e *MoonEphemeris) moonSkylineQuery(o Observer, sky Skyline, from, to time.Time) (*site, []Crossing, error) {
-	if len(sky) == 0 {
-		return nil, nil, &InputError{"skyline", 0, "needs at least one point"}
+	if err := sky.check(); err != nil {
+		return nil, nil, err
 	}
 	if flat, ok := sky.flat(); ok {
 		o.Horizon = flat
@@ -277,6 +277,15 @@ func (e *MoonEphemeris) moonSkyline(o Observer, st *site, sky Skyline, a, b floa
 		return h - (o.threshold(sky.Altitude(az)) + 16.0/60 - sd)
 	}
 	return skylineCrossings(e.moon, st, lo, hi, f, a, b)
+}
+
+// check returns an *InputError for a skyline without points, which every
+// skyline query refuses.
+func (s Skyline) check() error {
+	if len(s) == 0 {
+		return &InputError{"skyline", 0, "needs at least one point"}
+	}
+	return nil
 }
 
 // flat reports whether the skyline has one altitude in every direction,

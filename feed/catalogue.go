@@ -103,9 +103,9 @@ func (c *Catalogue) Calendars(ctx context.Context) ([]*Calendar, error) {
 // Calendar builds one feed: its header and its entries over its window. It
 // stops with ctx's error when ctx is done.
 func (c *Catalogue) Calendar(ctx context.Context, f *config.Feed) (*Calendar, error) {
-	s, ok := c.sites[f.Site]
-	if !ok {
-		return nil, fmt.Errorf("feed %q: site %q: no site has this id", f.ID, f.Site)
+	s, err := c.siteOf(f)
+	if err != nil {
+		return nil, err
 	}
 	first, last := c.window(f, s)
 	return c.sky.Calendar(ctx, s, f, first, last, c.opts)

@@ -8,12 +8,21 @@ import (
 	"heliocal/config"
 )
 
+// siteOf returns the site of the feed f, or an error naming both.
+func (c *Catalogue) siteOf(f *config.Feed) (*config.Site, error) {
+	s, ok := c.sites[f.Site]
+	if !ok {
+		return nil, fmt.Errorf("feed %q: site %q: no site has this id", f.ID, f.Site)
+	}
+	return s, nil
+}
+
 // Window returns the first and last local dates (00:00 UTC) of a feed's
 // window: days_back before and days_ahead after today in its site's zone.
 func (c *Catalogue) Window(f *config.Feed) (time.Time, time.Time, error) {
-	s, ok := c.sites[f.Site]
-	if !ok {
-		return time.Time{}, time.Time{}, fmt.Errorf("feed %q: site %q: no site has this id", f.ID, f.Site)
+	s, err := c.siteOf(f)
+	if err != nil {
+		return time.Time{}, time.Time{}, err
 	}
 	first, last := c.window(f, s)
 	return first, last, nil
@@ -24,9 +33,9 @@ func (c *Catalogue) Window(f *config.Feed) (time.Time, time.Time, error) {
 // dates, so that over the feed's own window the result is exactly the
 // published calendar; else on an ephemeris of its own.
 func (c *Catalogue) CalendarBetween(ctx context.Context, f *config.Feed, first, last time.Time) (*Calendar, error) {
-	s, ok := c.sites[f.Site]
-	if !ok {
-		return nil, fmt.Errorf("feed %q: site %q: no site has this id", f.ID, f.Site)
+	s, err := c.siteOf(f)
+	if err != nil {
+		return nil, err
 	}
 	first, last = civil(first), civil(last)
 	a, b := first, last
@@ -34,8 +43,7 @@ func (c *Catalogue) CalendarBetween(ctx context.Context, f *config.Feed, first, 
 		a, b = a.AddDate(0, 0, -PlanMargin), b.AddDate(0, 0, PlanMargin)
 	}
 	sky := c.sky
-	if a.AddDate(0, 0, -2).Before(sky.from) || b.AddDate(0, 0, 3).After(sky.to) {
-		var err error
+	if !sky.Covers(a, b) {
 		if sky, err = NewSky(a, b); err != nil {
 			return nil, err
 		}

@@ -4,6 +4,7 @@ import (
 	"math"
 	"strconv"
 	"testing"
+	"time"
 )
 
 // TestApsidesAgainstDE405 compares every perihelion and aphelion of
@@ -71,9 +72,14 @@ func apsisMiss(t *testing.T, r map[string]string) (year int, miss, dist float64)
 	if err != nil {
 		t.Fatalf("year %q: %v", r["year"], err)
 	}
-	apsis := Perihelion
-	if r["kind"] == "aphelion" {
+	var apsis func(int) (time.Time, float64, error)
+	switch r["kind"] {
+	case "perihelion":
+		apsis = Perihelion
+	case "aphelion":
 		apsis = Aphelion
+	default:
+		t.Fatalf("%d: unknown kind %q", year, r["kind"])
 	}
 	got, dist, err := apsis(year)
 	if err != nil {

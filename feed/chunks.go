@@ -30,10 +30,11 @@ const ChunkDays = 184
 // chunk by chunk (ChunkDays dates each) and hands each chunk to fn in
 // order, so that memory stays that of a few chunks whatever the span. The
 // chunks hold the same events and notes as one EventsFor call over the whole
-// range (times within the searches' 1 ms). An event's Start is never before the local midnight that begins its
-// date, but a span named by its evening (a dark window) may start after the
-// next midnight; writers that order by Start across chunks hold back the
-// events of a chunk that start after it ends. The chunk's slices are
+// range (times within the searches' 1 ms). An event's Start is never before
+// the local midnight that begins its date, but a span named by its evening
+// (a dark window) may start after the next midnight; writers that order by
+// Start across chunks hold back the events of a chunk that start after it
+// ends. The chunk's slices are
 // reused for a later chunk once fn returns.
 //
 // The chunks are computed by up to GOMAXPROCS goroutines at once while fn

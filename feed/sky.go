@@ -272,8 +272,9 @@ const maxRuns = 64
 // mergeByKey appends to out the items of xs in the order of key, equal
 // keys in the order of xs (stable), as sortByKey does, for xs made of a few
 // runs already in order (each kind appends its own run of events): the
-// runs are merged through a heap of their next keys, each item moved once. keys is a scratch buffer. With
-// more than maxRuns runs it sorts (sortByKey).
+// runs are merged through a heap of their next keys, each item moved once.
+// keys is a scratch buffer. With more than maxRuns runs it sorts
+// (sortByKey).
 func mergeByKey[T any](xs []T, out []T, keys *[]int64, key func(*T) int64) []T {
 	n := len(xs)
 	ks := slices.Grow((*keys)[:0], n)[:n]

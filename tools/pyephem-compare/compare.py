@@ -21,7 +21,8 @@ pressure 0 (the thresholds are geometric altitudes of the centre, as in
 heliocal), use_center, the rise/set threshold -0.8333 deg lowered by the dip
 of the horizon for 400 m (1.76' sqrt(h), as heliocal does). The runs
 alternate (heliocal, PyEphem, heliocal, ...) so that both see the same load;
-each is timed by its wall clock and by its CPU time (user + system, from
+each writes to a temporary file (--pipe: to a pipe this script reads) and is
+timed by its wall clock and by its CPU time (user + system, from
 the kernel's child accounting). The script prints each run, the median
 events per second of each side and their ratio, and the load average.
 """
@@ -34,6 +35,7 @@ import resource
 import statistics
 import subprocess
 import sys
+import tempfile
 import time
 
 LAT, LON, ELEV = 47.3, 8.5, 400.0
@@ -108,15 +110,27 @@ def pyephem_events(first_year, last_year):
     sys.stdout.write("\n")
 
 
-def timed(cmd):
-    """Runs cmd with stdout to a pipe; returns (wall s, cpu s, events)."""
+def timed(cmd, pipe):
+    """Runs cmd with stdout to a temporary file (as `> events.json` would),
+    or to a pipe that this script reads when pipe is set; returns (wall s,
+    cpu s, events). Through a pipe the reader's own pace is part of the
+    writer's wall time."""
     before = resource.getrusage(resource.RUSAGE_CHILDREN)
-    t0 = time.perf_counter()
-    p = subprocess.run(cmd, stdout=subprocess.PIPE, check=True)
-    wall = time.perf_counter() - t0
+    if pipe:
+        t0 = time.perf_counter()
+        p = subprocess.run(cmd, stdout=subprocess.PIPE, check=True)
+        wall = time.perf_counter() - t0
+        out = p.stdout
+    else:
+        with tempfile.TemporaryFile() as f:
+            t0 = time.perf_counter()
+            subprocess.run(cmd, stdout=f, check=True)
+            wall = time.perf_counter() - t0
+            f.seek(0)
+            out = f.read()
     after = resource.getrusage(resource.RUSAGE_CHILDREN)
     cpu = (after.ru_utime - before.ru_utime) + (after.ru_stime - before.ru_stime)
-    return wall, cpu, p.stdout.count(b'"kind"')
+    return wall, cpu, out.count(b'"kind"')
 
 
 def main():
@@ -124,6 +138,8 @@ def main():
     ap.add_argument("--heliocal", default="heliocal", help="path of the heliocal binary")
     ap.add_argument("--runs", type=int, default=3, help="runs of each side")
     ap.add_argument("--years", type=int, default=20, help="years from 2020")
+    ap.add_argument("--pipe", action="store_true",
+                    help="send each side's output through a pipe to this script instead of a file")
     ap.add_argument("mode", nargs="?", default="compare", choices=["compare", "pyephem"])
     a = ap.parse_args()
     first, last = 2020, 2020 + a.years - 1
@@ -137,7 +153,7 @@ def main():
     print("load average before: %.2f %.2f %.2f" % os.getloadavg())
     for i in range(a.runs):
         for name, cmd in (("heliocal", hc), ("pyephem", py)):
-            wall, cpu, n = timed(cmd)
+            wall, cpu, n = timed(cmd, a.pipe)
             rows[name].append((wall, cpu, n))
             print("run %d %-8s %7d events  wall %7.3f s (%9.0f events/s)  cpu %7.3f s (%9.0f events/s)"
                   % (i + 1, name, n, wall, n / wall, cpu, n / cpu), flush=True)

@@ -6,6 +6,7 @@ import (
 	"encoding/hex"
 	"encoding/json"
 	"fmt"
+	"os"
 	"runtime/debug"
 	"time"
 
@@ -83,9 +84,14 @@ func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Tim
 	if o.baseURL != "" {
 		base = o.baseURL
 	}
-	out := cfg.Service.OutDir
+	out, outField := cfg.Service.OutDir, "service.out_dir"
 	if o.out != "" {
-		out = o.out
+		out, outField = o.out, "--out"
+	}
+	// A missing directory is created; a file in its place is bad input,
+	// named here with the flag or key that gave it.
+	if fi, err := os.Stat(out); err == nil && !fi.IsDir() {
+		return badInput("%s: %q: not a directory (the feeds are written into a directory; give a new or existing one)", outField, out)
 	}
 	// A publish is a batch job: trading memory for fewer collections makes
 	// a large configuration about 10% faster (1,000 feeds: 55 → 118 MB

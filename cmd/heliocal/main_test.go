@@ -202,6 +202,7 @@ func TestEventsBadInput(t *testing.T) {
 		{"not a number", []string{"events", "--lat", "4O.5", "--lon", "0"}, `heliocal: --lat: "4O.5": not a number` + "\n"},
 		{"not a duration", []string{"publish", "--lock-wait", "5", "--out", "unused"}, `heliocal: --lock-wait: "5": not a duration`},
 		{"shard count", []string{"publish", "--shard", "0/10001", "--out", "unused"}, `--shard "0/10001": count must be at most 10000`},
+		{"out is a file", []string{"publish", "--out", "main_test.go"}, `heliocal: --out: "main_test.go": not a directory`},
 		{"config", []string{"check", "--config", filepath.Join("..", "..", "testdata", "config", "bad-latitude.yaml")}, "latitude"},
 		{"missing config", []string{"check", "--config", "nope.yaml"}, "heliocal: --config nope.yaml: no such file\n"},
 		{"config extension", []string{"check", "--config", "farm.ini"}, `heliocal: --config farm.ini: unknown file extension ".ini"`},
@@ -269,6 +270,27 @@ func TestPublishDemoTwice(t *testing.T) {
 	}
 	if !strings.Contains(errOut, "(0 written") {
 		t.Errorf("second run rewrote files: %s", errOut)
+	}
+}
+
+// service.out_dir naming a file is refused as bad input naming the key,
+// before anything is computed or written.
+func TestPublishOutDirIsFile(t *testing.T) {
+	file := filepath.Join(t.TempDir(), "feeds")
+	if err := os.WriteFile(file, []byte("not a directory"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	minimal, err := os.ReadFile(filepath.Join("..", "..", "testdata", "config", "good-minimal.yaml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	cfg := writeConfig(t, string(minimal)+"service:\n  out_dir: "+file+"\n")
+	code, _, errOut := runCLI(t, "publish", "--config", cfg)
+	if want := `heliocal: service.out_dir: "` + file + `": not a directory`; code != exitInput || !strings.Contains(errOut, want) {
+		t.Errorf("exit %d, %q; want %d and %q", code, errOut, exitInput, want)
+	}
+	if b, err := os.ReadFile(file); err != nil || string(b) != "not a directory" {
+		t.Errorf("the file was touched: %q, %v", b, err)
 	}
 }
 

@@ -64,7 +64,12 @@ func main() {
 	if err != nil {
 		log.Fatal(err)
 	}
-	if err := os.WriteFile("zz_deltat.go", out, 0o644); err != nil {
+	// Written beside the file and renamed over it: an interrupted run
+	// leaves the old table whole.
+	if err := os.WriteFile("zz_deltat.go"+".tmp", out, 0o644); err != nil {
+		log.Fatal(err)
+	}
+	if err := os.Rename("zz_deltat.go"+".tmp", "zz_deltat.go"); err != nil {
 		log.Fatal(err)
 	}
 }

@@ -159,7 +159,12 @@ var elpW1 = [5]float64{%s, %s, %s, %s, %s}
 	if err != nil {
 		log.Fatalf("gofmt: %v", err)
 	}
-	if err := os.WriteFile(outFile, src, 0o644); err != nil {
+	// Written beside the file and renamed over it: an interrupted run
+	// leaves the old table whole.
+	if err := os.WriteFile(outFile+".tmp", src, 0o644); err != nil {
+		log.Fatal(err)
+	}
+	if err := os.Rename(outFile+".tmp", outFile); err != nil {
 		log.Fatal(err)
 	}
 	fmt.Printf("%s: L %d/%d, B %d/%d, R %d/%d terms\n", outFile, kept[0], total[0], kept[1], total[1], kept[2], total[2])

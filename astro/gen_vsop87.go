@@ -160,7 +160,12 @@ func main() {
 	if err != nil {
 		log.Fatal(err)
 	}
-	if err := os.WriteFile("zz_vsop87_earth.go", out, 0o644); err != nil {
+	// Written beside the file and renamed over it: an interrupted run
+	// leaves the old table whole.
+	if err := os.WriteFile("zz_vsop87_earth.go"+".tmp", out, 0o644); err != nil {
+		log.Fatal(err)
+	}
+	if err := os.Rename("zz_vsop87_earth.go"+".tmp", "zz_vsop87_earth.go"); err != nil {
 		log.Fatal(err)
 	}
 }

@@ -120,7 +120,7 @@ func (sky *Sky) Calendar(ctx context.Context, s *config.Site, f *config.Feed, fi
 	cal := &Calendar{
 		ID:          f.ID,
 		Title:       f.Title,
-		Description: CalendarDescription(f),
+		Description: CalendarDescription(s, f),
 		Site:        SiteOf(s),
 		UTC:         f.UTC,
 		Color:       f.Color,

@@ -322,10 +322,11 @@ func TestKindOptions(t *testing.T) {
 	}
 }
 
-// The caution about legal times is in every calendar's description, once;
-// of the entries only civil dawn and dusk (limits of aviation night in many
-// rules) repeat it, not every sunrise. Golden hour and solar noon warn
-// about looking at the Sun.
+// The caution about legal times is in every calendar's description, once,
+// after the feed's own words and what its kinds' entries mean; of the
+// entries only civil dawn and dusk (limits of aviation night in many rules)
+// repeat it, not every sunrise. Golden hour and solar noon warn about
+// looking at the Sun.
 func TestCautions(t *testing.T) {
 	s := site(t, "mid", 48.2, 16.4, "Europe/Vienna")
 	sk := sky(t, "2027-06-01", "2027-06-01")
@@ -338,7 +339,8 @@ func TestCautions(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if cal.Description != "Our own words.\n\n"+CalendarCaution || !strings.Contains(CalendarCaution, "local rules") ||
+	if want := "Our own words.\n\n" + strings.Join(kindMeanings(s, specs), "\n") + "\n\n" + CalendarCaution; cal.Description != want ||
+		strings.Count(cal.Description, "local rules") != 1 || !strings.Contains(CalendarCaution, "local rules") ||
 		!strings.Contains(CalendarCaution, "hunting hours") || !strings.Contains(CalendarCaution, cautionEyes) {
 		t.Errorf("calendar description %q", cal.Description)
 	}
@@ -543,7 +545,8 @@ func mustFloat(t *testing.T, s string) float64 {
 }
 
 // A site with only temperature_c takes the standard atmosphere's pressure
-// at its elevation (ICAO: 963.8 hPa at 420 m), says so in the sunrise text,
+// at its elevation (ICAO: 963.8 hPa at 420 m), says so in the calendar's
+// description where it says what a sunrise is,
 // and a cold morning's sunrise comes earlier than with the standard
 // refraction (Meeus ch. 16: refraction ∝ P/(273+T)).
 func TestSiteAtmosphere(t *testing.T) {
@@ -568,8 +571,10 @@ func TestSiteAtmosphere(t *testing.T) {
 	if !b[0].Start.Before(a[0].Start) {
 		t.Errorf("cold sunrise %v not before standard %v", b[0].Start, a[0].Start)
 	}
-	if !strings.Contains(b[0].Description, "refraction for 964 hPa and −20 °C") || !strings.Contains(a[0].Description, "standard refraction") {
-		t.Errorf("descriptions:\n%s\n%s", a[0].Description, b[0].Description)
+	f := &config.Feed{ID: "x", Kinds: specs}
+	if da, db := CalendarDescription(std, f), CalendarDescription(&cold, f); !strings.Contains(db, "Sunrise: the Sun's upper limb appears on the horizon (refraction for 964 hPa and −20 °C).") ||
+		!strings.Contains(da, "Sunrise: the Sun's upper limb appears on the horizon (standard refraction).") {
+		t.Errorf("calendar descriptions:\n%s\n%s", da, db)
 	}
 }
 

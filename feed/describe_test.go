@@ -19,9 +19,11 @@ func templateOf(e Event, desc string) string {
 	return regexp.MustCompile(`[−+-]?[0-9][0-9.,:]*`).ReplaceAllString(desc, "#")
 }
 
-// Every kind has its own text: no two kinds share a description template by
-// accident (the blue hour once read as the golden hour's warm light with a
-// warning not to look at the Sun), and each says what is true of it.
+// Every kind has its own text as a reader sees it, the entry's description
+// with what its kind means (written once in the calendar's description,
+// kindMeanings): no two kinds share a template by accident (the blue hour
+// once read as the golden hour's warm light with a warning not to look at
+// the Sun), and each says what is true of it.
 func TestDescriptionsOwnPerKind(t *testing.T) {
 	site := &config.Site{ID: "orchard", Name: "Test Orchard", Latitude: 48.2, Longitude: 16.4, TimeZone: zone(t, "Europe/Vienna")}
 	first, last := time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC), time.Date(2027, 12, 31, 0, 0, 0, 0, time.UTC)
@@ -51,6 +53,9 @@ func TestDescriptionsOwnPerKind(t *testing.T) {
 			continue
 		}
 		_, desc := describe(info, e)
+		if m := kindMeanings(site, []config.KindSpec{{Kind: e.Kind}}); len(m) > 0 {
+			desc += "\n" + strings.Join(m, "\n")
+		}
 		described[name] = desc
 		tpl := templateOf(e, desc)
 		if other, dup := seen[tpl]; dup {
@@ -167,6 +172,71 @@ func TestDurationWords(t *testing.T) {
 	for d, want := range map[time.Duration]string{-32 * time.Second: "−32 s", 64 * time.Second: "+1 min 04 s", 0: "+0 s"} {
 		if got := Change(d); got != want {
 			t.Errorf("Change(%v) = %q, want %q", d, got, want)
+		}
+	}
+}
+
+// What the entries of a kind mean is the same on every date: it is written
+// once in the calendar's description, for each kind of the feed (a kind
+// given twice, with an offset, once), and no entry repeats it. Each entry
+// still says what it is and gives its own numbers: its description starts
+// with its title, and a sunrise or sunset keeps its direction and the day
+// length.
+func TestMeaningsOncePerCalendar(t *testing.T) {
+	flat := site(t, "flat", 48.2, 16.4, "Europe/Vienna")
+	ridge := site(t, "ridge", 47.05, 11.2, "Europe/Vienna")
+	ridge.Skyline = [][2]float64{{0, 3}, {100, 12}, {150, 4}, {176, 8}, {184, 8}, {190, 4}, {260, 15}, {300, 3}}
+	sk := sky(t, "2027-03-01", "2027-03-03")
+	var specs []config.KindSpec
+	for _, k := range mustKinds(t, "sunrise", "sunset", "civil-dawn", "nautical-dusk", "astronomical-dawn", "golden-hour", "blue-hour",
+		"sun-band:2..12", "sun-band:20..35", "seasons", "solar-noon") {
+		specs = append(specs, config.KindSpec{Kind: k})
+	}
+	reminder := specs[0]
+	reminder.Offset = config.Duration(-30 * time.Minute)
+	specs = append(specs, reminder)
+	for _, c := range []struct {
+		s     *config.Site
+		rise  string // the meaning of sunrise at the site
+		entry string // how a sunrise entry starts
+	}{
+		{flat, "Sunrise: the Sun's upper limb appears on the horizon (standard refraction).", "Sunrise at "},
+		{ridge, "Sunrise: the Sun's upper limb first appears over the site's skyline (standard refraction for the skyline's altitude).", "Sunrise over the skyline at "},
+	} {
+		f := &config.Feed{ID: "f", Kinds: specs}
+		cal, err := sk.Calendar(context.Background(), c.s, f, date("2027-03-01"), date("2027-03-03"), Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		meanings := kindMeanings(c.s, specs)
+		if len(meanings) != 10 || meanings[0] != c.rise || meanings[len(meanings)-1] != azimuthMeaning {
+			t.Errorf("%s: %d meanings, want 10 (7 kinds, 2 bands, the azimuth), sunrise's first:\n%s", c.s.ID, len(meanings), strings.Join(meanings, "\n"))
+		}
+		for _, m := range meanings {
+			if n := strings.Count(cal.Description, m); n != 1 {
+				t.Errorf("%s: %q %d times in the calendar's description", c.s.ID, m, n)
+			}
+		}
+		kinds := map[string]int{}
+		for _, e := range cal.Entries {
+			kinds[e.Kind]++
+			for _, w := range append(meanings, "upper limb", "Sun's centre is", "Caution:") {
+				if strings.Contains(e.Description, w) {
+					t.Errorf("%s: %s entry repeats %q:\n%s", c.s.ID, e.Kind, w, e.Description)
+				}
+			}
+			if len(kindMeanings(c.s, []config.KindSpec{{Kind: mustKinds(t, e.Kind)[0]}})) > 0 && !strings.HasPrefix(e.Description, e.Title) {
+				t.Errorf("%s: %s entry does not start with its title %q:\n%s", c.s.ID, e.Kind, e.Title, e.Description)
+			}
+			if e.Kind == "sunrise" && e.Title == "Sunrise" && (!strings.HasPrefix(e.Description, c.entry) || !strings.Contains(e.Description, ", azimuth ") ||
+				!strings.Contains(e.Description, "from the day before).")) {
+				t.Errorf("%s: sunrise entry:\n%s", c.s.ID, e.Description)
+			}
+		}
+		for _, k := range []string{"sunrise", "sunset", "civil-dawn", "nautical-dusk", "astronomical-dawn", "golden-hour", "blue-hour", "sun-band:2..12", "sun-band:20..35", "solar-noon"} {
+			if kinds[k] == 0 {
+				t.Errorf("%s: no %s entry in 3 days", c.s.ID, k)
+			}
 		}
 	}
 }

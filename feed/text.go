@@ -350,13 +350,97 @@ const CalendarCaution = "Caution: times are computed for planning from the site'
 	"Where a time has legal weight (hunting hours, aviation night, lighting-up times, curfews) local rules " +
 	"and their official tables decide, not this calendar. " + cautionEyes
 
-// CalendarDescription is a calendar's description: the feed's own text and
-// CalendarCaution.
-func CalendarDescription(f *config.Feed) string {
-	if f.Description == "" {
-		return CalendarCaution
+// CalendarDescription is the description of feed f of site s: the feed's
+// own text, what the entries of each of its kinds mean (kindMeanings:
+// written once here, not on each of hundreds of entries that only differ
+// in their times) and CalendarCaution.
+func CalendarDescription(s *config.Site, f *config.Feed) string {
+	var b strings.Builder
+	if f.Description != "" {
+		b.WriteString(f.Description + "\n\n")
 	}
-	return f.Description + "\n\n" + CalendarCaution
+	if m := kindMeanings(s, f.Kinds); len(m) > 0 {
+		b.WriteString(strings.Join(m, "\n") + "\n\n")
+	}
+	b.WriteString(CalendarCaution)
+	return b.String()
+}
+
+// kindMeanings are the sentences that say what the entries of the kinds of
+// specs mean, once for each kind (a group's members included) whose entries
+// leave it out: sunrise and sunset, the twilights, golden hour, blue hour
+// and sun bands. Their entries say what they are and give their own times
+// and numbers ("Civil dawn at 06:14:47 CET."); the meaning is the same on
+// every date.
+func kindMeanings(s *config.Site, specs []config.KindSpec) []string {
+	var out []string
+	azimuth := false
+	add := func(m string) {
+		if m != "" && !slices.Contains(out, m) {
+			out = append(out, m)
+		}
+	}
+	for _, spec := range specs {
+		for _, k := range spec.Kind.Members() {
+			switch k.Name {
+			case "golden-hour", "blue-hour":
+				lo, hi := spec.Band()
+				add(bandMeaning(k, lo, hi))
+			case config.KindSunBand:
+				add(bandMeaning(k, k.Altitude, k.High))
+			case "sunrise", "sunset":
+				add(kindMeaning(s, k.Name))
+				azimuth = true
+			default:
+				add(kindMeaning(s, k.Name))
+			}
+		}
+	}
+	if azimuth {
+		out = append(out, azimuthMeaning)
+	}
+	return out
+}
+
+// azimuthMeaning says how sunrise and sunset entries give their direction.
+const azimuthMeaning = "Azimuths are in degrees from the north through the east (90° east, 180° south)."
+
+// kindMeaning is the meaning of a sunrise, a sunset or a twilight's dawn
+// or dusk at site s, "" for other kinds.
+func kindMeaning(s *config.Site, kind string) string {
+	if m, ok := twilightMeaning[kind]; ok {
+		return m
+	}
+	verb := map[string]string{"sunrise": "appears on the horizon", "sunset": "disappears below the horizon"}[kind]
+	if verb == "" {
+		return ""
+	}
+	refr := refractionText(PlaceOf(s).Observer)
+	if len(s.Skyline) > 0 {
+		verb, refr = "first appears over the site's skyline", refr+" for the skyline's altitude"
+		if kind == "sunset" {
+			verb = "last disappears behind the site's skyline"
+		}
+	}
+	return plainNames[kind] + ": the Sun's upper limb " + verb + " (" + refr + ")."
+}
+
+// bandMeaning is the meaning of the spans of a band kind (golden hour,
+// blue hour, a sun band) between the altitudes low and high.
+func bandMeaning(k config.Kind, low, high float64) string {
+	name, light := plainNames[k.Name], map[string]string{
+		"golden-hour": "low, warm sunlight and long shadows, for photography and events",
+		"blue-hour":   "no direct sunlight; an even, deep blue sky, for photography with the lights on",
+	}[k.Name]
+	if k.Name == config.KindSunBand {
+		name, light = bandBase(low, high), "a band of the Sun's altitude chosen for this feed"
+	}
+	return name + ": the Sun's centre is between " + between(low, high) + "; " + light + "."
+}
+
+// bandBase is a sun band's name: "Sun between +2° and +12°".
+func bandBase(low, high float64) string {
+	return "Sun between " + signedDegrees(low) + " and " + signedDegrees(high)
 }
 
 // categories are the CATEGORIES of a kind: a family word and the kind's name.
@@ -491,33 +575,27 @@ func appendDescription(b []byte, s *siteInfo, e Event) ([]byte, string) {
 func appendDaily(b []byte, s *siteInfo, e Event) (_ []byte, title string, ok bool) {
 	switch e.Kind.Name {
 	case "sunrise", "sunset":
+		// what a sunrise is (the upper limb, the refraction) is in the
+		// calendar's description (kindMeaning), as is the caution
 		title = plainNames[e.Kind.Name]
-		verb, refr, more := "disappears", s.refraction, ""
-		if e.Kind.Name == "sunrise" {
-			verb = "appears"
-		}
+		b = append(b, title...)
 		if e.DirectSun {
-			verb, more = "last disappears behind the site's skyline", " for the skyline's altitude"
-			if e.Kind.Name == "sunrise" {
-				verb = "first appears over the site's skyline"
-			}
+			b = append(b, " over the skyline"...)
 		}
-		b = s.zone.appendClock(append(append(b, title...), " at "...), e.Start)
-		b = append(append(append(b, ": the Sun's upper limb "...), verb...), " at "...)
-		b = append(append(append(append(appendAzimuth(b, e), " ("...), refr...), more...), ").\n"...)
+		b = append(s.zone.appendClock(append(b, " at "...), e.Start), ", azimuth "...)
+		b = append(appendAzimuthWords(b, e), ").\n"...)
 		if e.DirectSun {
 			b = append(b, "Direct Sun over the skyline "...)
 		} else {
 			b = append(b, "Day length "...)
 		}
 		b = append(appendHM(b, e.DayLength), " ("...)
-		// the caution is in the calendar's description (CalendarCaution),
-		// not repeated every day
 		return append(appendChange(b, e.DayChange), " from the day before)."...), title, true
 	case "civil-dawn", "civil-dusk", "nautical-dawn", "nautical-dusk", "astronomical-dawn", "astronomical-dusk":
 		title = plainNames[e.Kind.Name]
-		b = s.zone.appendClock(append(append(b, title...), " at "...), e.Start)
-		b = append(append(b, ".\n"...), twilightMeaning[e.Kind.Name]...)
+		// the threshold's meaning is in the calendar's description
+		// (kindMeaning); civil dawn and dusk bound aviation night
+		b = append(s.zone.appendClock(append(append(b, title...), " at "...), e.Start), '.')
 		if strings.HasPrefix(e.Kind.Name, "civil") {
 			b = append(append(b, '\n'), cautionLegal...)
 		}
@@ -528,19 +606,23 @@ func appendDaily(b []byte, s *siteInfo, e Event) (_ []byte, title string, ok boo
 		z := s.zone
 		b = z.appendDayMark(z.appendClock(append(append(b, title...), " from "...), e.Start), e.Start, e.Date)
 		b = z.appendDayMark(z.appendClock(append(b, " to "...), e.End), e.End, e.Date)
-		b = append(appendHM(append(b, " ("...), ToSecond(e.End).Sub(ToSecond(e.Start))), ").\n"...)
-		return append(b, bt.light...), title, true
+		b = append(appendHM(append(b, " ("...), ToSecond(e.End).Sub(ToSecond(e.Start))), ")."...)
+		if bt.eyes {
+			b = append(append(b, '\n'), cautionEyes...)
+		}
+		return b, title, true
 	}
 	return b, "", false
 }
 
 // bandText is the text of a band kind's spans (golden hour, blue hour, a
-// sun-band) that is the same on every date, written once per feed.
+// sun-band) that is the same on every date, written once per feed; what the
+// band means is in the calendar's description (bandMeaning).
 type bandText struct {
 	name      string
 	low, high float64
 	base      string // "Golden hour", "Sun between +2° and +12°"
-	light     string // "The Sun's centre is between …: …." and the caution
+	eyes      bool   // the Sun may be in view: the spans carry cautionEyes
 	parts     []string
 	titles    []string // by part: "Golden hour (morning)"
 }
@@ -550,18 +632,9 @@ func (s *siteInfo) bandText(e Event) *bandText {
 	if bt := s.band; bt != nil && bt.name == e.Kind.Name && bt.low == e.Low && bt.high == e.High {
 		return bt
 	}
-	bt := &bandText{name: e.Kind.Name, low: e.Low, high: e.High, base: plainNames[e.Kind.Name]}
-	light := map[string]string{
-		"golden-hour": "low, warm sunlight and long shadows, for photography and events",
-		"blue-hour":   "no direct sunlight; an even, deep blue sky, for photography with the lights on",
-	}[e.Kind.Name]
+	bt := &bandText{name: e.Kind.Name, low: e.Low, high: e.High, base: plainNames[e.Kind.Name], eyes: e.High > -1}
 	if e.Kind.Name == config.KindSunBand {
-		bt.base = "Sun between " + signedDegrees(e.Low) + " and " + signedDegrees(e.High)
-		light = "a band of the Sun's altitude chosen for this feed"
-	}
-	bt.light = "The Sun's centre is between " + between(e.Low, e.High) + ": " + light + "."
-	if e.High > -1 {
-		bt.light += "\n" + cautionEyes // the Sun may be in view
+		bt.base = bandBase(e.Low, e.High)
 	}
 	s.band = bt
 	return bt
@@ -642,12 +715,24 @@ func azimuthText(e Event) string { return string(appendAzimuth(nil, e)) }
 
 // appendAzimuth appends azimuthText(e) to b.
 func appendAzimuth(b []byte, e Event) []byte {
+	return append(append(appendDegrees(b, e), ", "...), astro.CompassPoint(e.Azimuth)...)
+}
+
+// appendAzimuthWords appends an event's azimuth as a sunrise's text has
+// it, its compass point in brackets without the closing one: "112°
+// (east-south-east".
+func appendAzimuthWords(b []byte, e Event) []byte {
+	return append(append(appendDegrees(b, e), " ("...), astro.CompassPoint(e.Azimuth)...)
+}
+
+// appendDegrees appends an event's azimuth in whole degrees, 0–359: "112°".
+func appendDegrees(b []byte, e Event) []byte {
 	if az := math.Round(e.Azimuth) - 360*math.Floor(math.Round(e.Azimuth)/360); az >= 0 && az < 360 {
 		b = strconv.AppendInt(b, int64(az), 10) // a whole number of degrees, as 'f' with no decimals writes it
 	} else {
 		b = strconv.AppendFloat(b, az, 'f', 0, 64)
 	}
-	return append(append(b, "°, "...), astro.CompassPoint(e.Azimuth)...)
+	return append(b, "°"...)
 }
 
 var crossQuarterBetween = map[string]string{

@@ -10,8 +10,8 @@ import (
 
 // The ad-hoc limit as the serving documentation states it: the default
 // kinds (sunrise, sunset, civil dawn and dusk) fit under the default 1 MB
-// for a year and for the longest window, 400 days, at 47.8° N; five kinds
-// for 400 days do not, and the refusal states the size and the limit in MB
+// for a year and for the longest window, 400 days, at 47.8° N; six kinds
+// (solar noon and golden hour added) for 400 days do not, and the refusal states the size and the limit in MB
 // and a number of days that, asked for, fits.
 func TestAdhocLimitAsDocumented(t *testing.T) {
 	ts := builderServer(t)
@@ -29,16 +29,21 @@ func TestAdhocLimitAsDocumented(t *testing.T) {
 		return r.StatusCode, b
 	}
 	// 400 days fitting, a year does too
-	if code, b := get("days=400"); code != http.StatusOK || len(b) >= 1_000_000 {
-		t.Errorf("default kinds, 400 days: status %d, %d bytes; want 200 under 1 MB", code, len(b))
+	for _, days := range []string{"365", "400"} {
+		code, b := get("days=" + days)
+		if code != http.StatusOK || len(b) >= 1_000_000 {
+			t.Errorf("default kinds, %s days: status %d, %d bytes; want 200 under 1 MB", days, code, len(b))
+		}
+		t.Logf("default kinds, %s days: %d bytes", days, len(b))
 	}
-	const five = "kinds=sunrise,sunset,civil-dawn,civil-dusk,solar-noon&"
-	code, msg := get(five + "days=400")
+	const six = "kinds=sunrise,sunset,civil-dawn,civil-dusk,solar-noon,golden-hour&"
+	code, msg := get(six + "days=400")
 	m := regexp.MustCompile(`is (\d+\.\d+) MB, over the 1 MB limit per ad-hoc feed .*\bdays=(\d+) should fit`).FindSubmatch(msg)
 	if code != http.StatusBadRequest || m == nil {
-		t.Fatalf("five kinds, 400 days: status %d, %q; want a 400 stating the size in MB and days= that fits", code, msg)
+		t.Fatalf("six kinds, 400 days: status %d, %.200q; want a 400 stating the size in MB and days= that fits", code, msg)
 	}
-	if code, b := get(five + "days=" + string(m[2])); code != http.StatusOK {
+	t.Logf("six kinds, 400 days: %s", msg)
+	if code, b := get(six + "days=" + string(m[2])); code != http.StatusOK {
 		t.Errorf("days=%s, as the refusal advises: status %d, %q", m[2], code, b[:min(len(b), 200)])
 	}
 	if size, _ := strconv.ParseFloat(string(m[1]), 64); size <= 1 {

@@ -24,19 +24,34 @@ func ToMillisecond(t time.Time) time.Time { return t.Round(time.Millisecond) }
 // up exactly when the millisecond, rounded, is 500 or more: from
 // 499.5 ms on.
 func ToSecond(t time.Time) time.Time {
-	up := t.Nanosecond() >= 499_500_000
-	t = t.Truncate(time.Second)
-	if up {
-		t = t.Add(time.Second)
+	// t.Truncate(time.Second) is t less its nanoseconds (whole seconds
+	// count from the zero time), without Truncate's general division;
+	// Round(0) drops a monotonic reading as Truncate does
+	ns := t.Nanosecond()
+	d := -time.Duration(ns)
+	if ns >= 499_500_000 {
+		d += time.Second
 	}
-	return t
+	return t.Round(0).Add(d)
+}
+
+// UnixSecond is ToSecond(t).Unix(), without making the Time: the second
+// goes up from 499.5 ms on.
+func UnixSecond(t time.Time) int64 {
+	u := t.Unix()
+	if t.Nanosecond() >= 499_500_000 {
+		u++
+	}
+	return u
 }
 
 // ToMinute is an instant as shown to the minute.
 func ToMinute(t time.Time) time.Time { return t.Round(time.Millisecond).Round(time.Minute) }
 
 // span is the time between two instants as shown, to the second.
-func span(from, to time.Time) time.Duration { return ToSecond(to).Sub(ToSecond(from)) }
+func span(from, to time.Time) time.Duration {
+	return time.Duration(UnixSecond(to)-UnixSecond(from)) * time.Second
+}
 
 // DateOnly reports whether an event names a date rather than an instant:
 // the dates on which day length crosses a threshold, and the daily summary

@@ -6,7 +6,8 @@ import (
 	"time"
 )
 
-// TestToSecondTwoSteps: ToSecond gives what rounding to the millisecond,
+// TestToSecondTwoSteps: ToSecond (and UnixSecond, its Unix second) gives
+// what rounding to the millisecond,
 // then to the second, gives (the rule written above it), at the halfway
 // values of both steps and at random instants, before and after 1970.
 func TestToSecondTwoSteps(t *testing.T) {
@@ -15,6 +16,7 @@ func TestToSecondTwoSteps(t *testing.T) {
 		time.Date(2027, 3, 28, 0, 59, 59, 0, time.UTC),
 		time.Date(1900, 1, 1, 12, 0, 0, 0, time.UTC),
 		time.Date(2099, 12, 31, 23, 59, 59, 0, time.FixedZone("", 3600)),
+		time.Now(), // with a monotonic reading, which neither keeps
 	}
 	nanos := []int{0, 1, 499_499_999, 499_500_000, 499_999_999, 500_000_000, 999_499_999, 999_500_000, 999_999_999}
 	r := rand.New(rand.NewSource(12))
@@ -24,8 +26,11 @@ func TestToSecondTwoSteps(t *testing.T) {
 	for _, b := range base {
 		for _, n := range nanos {
 			in := b.Add(time.Duration(n))
-			if got, want := ToSecond(in), twoSteps(in); !got.Equal(want) || got.Location() != want.Location() {
+			if got, want := ToSecond(in), twoSteps(in); !got.Equal(want) || got.Location() != want.Location() || got != want {
 				t.Fatalf("ToSecond(%s) = %s, want %s", in.Format(time.RFC3339Nano), got.Format(time.RFC3339Nano), want.Format(time.RFC3339Nano))
+			}
+			if got, want := UnixSecond(in), twoSteps(in).Unix(); got != want {
+				t.Fatalf("UnixSecond(%s) = %d, want %d", in.Format(time.RFC3339Nano), got, want)
 			}
 		}
 	}

@@ -82,8 +82,11 @@ func (z *zoneCache) at(u int64) (string, int64) {
 }
 
 // day is the number of days since 1970-01-01 of the local date of t.
-func (z *zoneCache) day(t time.Time) int64 {
-	u := t.Unix()
+func (z *zoneCache) day(t time.Time) int64 { return z.dayOf(t.Unix()) }
+
+// dayOf is the number of days since 1970-01-01 of the local date of the
+// Unix second u.
+func (z *zoneCache) dayOf(u int64) int64 {
 	_, off := z.at(u)
 	return floorDiv(u+off, secondsPerDay)
 }
@@ -95,7 +98,7 @@ func (z *zoneCache) date(t time.Time) time.Time {
 
 // appendClock appends localClock(t, z.loc) to b, the zone looked up in z.
 func (z *zoneCache) appendClock(b []byte, t time.Time) []byte {
-	u := ToSecond(t).Unix()
+	u := UnixSecond(t)
 	name, off := z.at(u)
 	s := daySeconds(u + off)
 	return appendClockZone(b, s/3600, s/60%60, s%60, name)
@@ -103,7 +106,7 @@ func (z *zoneCache) appendClock(b []byte, t time.Time) []byte {
 
 // appendDayMark appends DayMark(t, d, z.loc) to b.
 func (z *zoneCache) appendDayMark(b []byte, t, d time.Time) []byte {
-	return appendDays(b, z.day(ToSecond(t))-floorDiv(d.Unix(), secondsPerDay))
+	return appendDays(b, z.dayOf(UnixSecond(t))-floorDiv(d.Unix(), secondsPerDay))
 }
 
 // appendDays appends the mark of an instant n local dates after the date
@@ -606,7 +609,7 @@ func appendDaily(b []byte, s *siteInfo, e Event) (_ []byte, title string, ok boo
 		z := s.zone
 		b = z.appendDayMark(z.appendClock(append(append(b, title...), " from "...), e.Start), e.Start, e.Date)
 		b = z.appendDayMark(z.appendClock(append(b, " to "...), e.End), e.End, e.Date)
-		b = append(appendHM(append(b, " ("...), ToSecond(e.End).Sub(ToSecond(e.Start))), ")."...)
+		b = append(appendHM(append(b, " ("...), span(e.Start, e.End)), ")."...)
 		if bt.eyes {
 			b = append(append(b, '\n'), cautionEyes...)
 		}

@@ -60,6 +60,36 @@ type eventLines struct {
 	// alarmHead is BEGIN:VALARM and ACTION, alarmTail TRIGGER and
 	// END:VALARM; the alarm's DESCRIPTION goes between them.
 	alarmHead, alarmTail []byte
+
+	// summaries are the SUMMARY lines of the last titles written (see
+	// summaryLine): a feed's titles repeat from date to date.
+	summaries   [4]titleLine
+	nextSummary int
+}
+
+// titleLine is a title and its SUMMARY line.
+type titleLine struct {
+	title string
+	line  []byte
+}
+
+// summaryLine appends the SUMMARY line of title, as textLine writes it:
+// from w.lines.summaries when one of the last few titles was the same
+// ("Sunrise", "Golden hour (morning)"), so that most are copied, not
+// escaped and measured for folding again.
+func (w *writer) summaryLine(b []byte, title string) []byte {
+	l := &w.lines
+	for i := range l.summaries {
+		if m := &l.summaries[i]; m.line != nil && m.title == title {
+			return append(b, m.line...)
+		}
+	}
+	start := len(b)
+	b = w.textLine(b, "SUMMARY:", title)
+	m := &l.summaries[l.nextSummary%len(l.summaries)]
+	l.nextSummary++
+	m.title, m.line = title, append(m.line[:0], b[start:]...)
+	return b
 }
 
 // setLines renders w.lines for cfg unless they already are.
@@ -148,7 +178,7 @@ func (ev *vevent) appendTo(b []byte) []byte {
 	}
 
 	if ev.title != "" {
-		b = w.textLine(b, "SUMMARY:", ev.title)
+		b = w.summaryLine(b, ev.title)
 	}
 	if ev.desc != "" {
 		b = w.cleanTextLine(b, "DESCRIPTION:", ev.desc)

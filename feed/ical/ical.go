@@ -565,8 +565,9 @@ func (w *writer) event(i int, e *feed.Entry) (*vevent, error) {
 			return nil, fmt.Errorf("End %s is before Start %s",
 				e.End.UTC().Format(time.RFC3339), e.Start.UTC().Format(time.RFC3339))
 		}
-		start := feed.ToSecond(e.Start).UTC()
-		end := feed.ToSecond(e.End).UTC()
+		// feed.ToSecond(t).UTC(), made from the Unix second
+		start := time.Unix(feed.UnixSecond(e.Start), 0).UTC()
+		end := time.Unix(feed.UnixSecond(e.End), 0).UTC()
 		if !end.After(start) {
 			end = start.Add(instantLength)
 		}

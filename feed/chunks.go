@@ -5,6 +5,7 @@ import (
 	"runtime"
 	"slices"
 	"sync"
+	"sync/atomic"
 	"time"
 
 	"heliocal/astro"
@@ -37,9 +38,10 @@ const ChunkDays = 184
 // ends. The chunk's slices are
 // reused for a later chunk once fn returns.
 //
-// The chunks are computed by up to GOMAXPROCS goroutines at once while fn
-// consumes them in order (fn itself is called from the calling goroutine,
-// one chunk at a time); at most one chunk more than the goroutines is held.
+// The chunks are computed by up to GOMAXPROCS goroutines at once (the
+// calling one among them), and each hands its chunk to fn when the chunks
+// before it have been: fn is called by one goroutine at a time, in order,
+// not always by the calling one. At most one chunk per goroutine is held.
 func (s *Sky) EventChunks(ctx context.Context, p Place, specs []config.KindSpec, first, last time.Time, fn func(Chunk) error) error {
 	first, last, err := dateRange(first, last)
 	if err != nil {
@@ -82,101 +84,69 @@ func (s *Sky) EventChunks(ctx context.Context, p Place, specs []config.KindSpec,
 		}
 		return Chunk{First: d, Last: end, Events: events, Notes: notes}, nil
 	}
-	workers := min(runtime.GOMAXPROCS(0), len(starts))
-	if workers <= 1 {
-		buf := &buffers{}
-		for i := range starts {
-			c, err := compute(ctx, i, buf)
-			if err != nil {
-				return err
-			}
-			if err := fn(c); err != nil {
-				return err
-			}
-		}
-		return nil
-	}
-	return inOrder(ctx, len(starts), workers, compute, fn)
+	return inOrder(ctx, len(starts), min(runtime.GOMAXPROCS(0), len(starts)), compute, fn)
 }
 
-// inOrder runs compute for 0..n−1 on up to workers goroutines and hands the
-// results to fn in order, on the calling goroutine. A chunk's buffers go
-// back to the pool once fn returns, so at most workers+1 chunks exist at
-// once. The first error (of compute, of fn, or ctx's) stops the rest; the
-// goroutines have ended when it returns.
+// inOrder runs compute for 0..n−1 on workers goroutines, the calling one
+// among them, each with its own buffers, and hands the results to fn in
+// order: the goroutine that computed chunk i waits until chunk i−1 has been
+// handed over, hands chunk i to fn itself and goes on with the next chunk
+// not yet taken. fn is thus called by one goroutine at a time, in the
+// order of the chunks, and only workers chunks exist at once. The
+// goroutines mostly find their turn come when they finish: one hands its
+// chunk over while the other computes, so that neither waits for a
+// hand-off between goroutines, as a writer fed by the computing
+// goroutines would at every chunk. The first error (of compute, of fn, or
+// ctx's) in the order of the chunks stops the rest; the goroutines have
+// ended when it returns.
 func inOrder(ctx context.Context, n, workers int, compute func(context.Context, int, *buffers) (Chunk, error), fn func(Chunk) error) error {
 	ctx, cancel := context.WithCancel(ctx)
-	var wg sync.WaitGroup
-	defer func() {
-		cancel()
-		wg.Wait()
-	}()
-	type result struct {
-		c   Chunk
-		buf *buffers
-		err error
+	defer cancel()
+	// turn[i] is closed once the chunks before i have been handed to fn
+	turn := make([]chan struct{}, n+1)
+	for i := range turn {
+		turn[i] = make(chan struct{})
 	}
-	pool := make(chan *buffers, workers+1)
-	for range workers + 1 {
-		pool <- &buffers{}
-	}
-	results := make([]chan result, n)
-	for i := range results {
-		results[i] = make(chan result, 1)
-	}
-	// Buffers are taken in the order of the chunks, so the next chunk fn
-	// waits for always has one.
-	type job struct {
-		i   int
-		buf *buffers
-	}
-	next := make(chan job)
-	wg.Add(1)
-	go func() {
-		defer wg.Done()
-		defer close(next)
-		for i := range n {
+	close(turn[0])
+	var next atomic.Int64 // the next chunk to take
+	var first error       // the error that stopped the chunks, set in turn
+	work := func() {
+		buf := &buffers{}
+		for {
+			i := int(next.Add(1) - 1)
+			if i >= n {
+				return
+			}
+			c, err := compute(ctx, i, buf)
 			select {
-			case buf := <-pool:
-				select {
-				case next <- job{i, buf}:
-				case <-ctx.Done():
-					return
-				}
+			case <-turn[i]:
 			case <-ctx.Done():
 				return
 			}
-		}
-	}()
-	for range workers {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for j := range next {
-				c, err := compute(ctx, j.i, j.buf)
-				results[j.i] <- result{c: c, buf: j.buf, err: err}
+			if err == nil {
+				err = ctx.Err()
 			}
-		}()
+			if err == nil {
+				err = fn(c)
+			}
+			if err != nil {
+				first = err // before cancel, which the others wait on
+				cancel()
+				return
+			}
+			close(turn[i+1])
+		}
 	}
-	for i := range n {
-		if err := ctx.Err(); err != nil {
-			return err
-		}
-		var r result
-		select {
-		case r = <-results[i]:
-		case <-ctx.Done():
-			return ctx.Err()
-		}
-		if r.err != nil {
-			return r.err
-		}
-		if err := fn(r.c); err != nil {
-			return err
-		}
-		pool <- r.buf
+	var wg sync.WaitGroup
+	for range workers - 1 {
+		wg.Go(work)
 	}
-	return nil
+	work()
+	wg.Wait()
+	if first != nil {
+		return first
+	}
+	return ctx.Err()
 }
 
 // kindsNamed returns the kinds of specs named name ("photoperiod").

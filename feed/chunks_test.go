@@ -124,13 +124,13 @@ func TestEventChunksOrderAndStop(t *testing.T) {
 	}
 }
 
-// sortByKey and mergeByKey give what a stable sort gives, for runs in
-// order, out of order (more than maxRuns runs for mergeByKey, which then
+// sortByKey and orderByKey give what a stable sort gives, for runs in
+// order, out of order (more than maxRuns runs for orderByKey, which then
 // sorts), empty, with ties within and across runs, and with keys bunched
 // in a few places (crowded buckets).
 func TestSortByKey(t *testing.T) {
 	type item struct{ key, id int64 }
-	var keys []int64
+	var scratch orderScratch
 	r := rand.New(rand.NewPCG(1, 2))
 	for trial := range 500 {
 		var xs []item
@@ -162,7 +162,8 @@ func TestSortByKey(t *testing.T) {
 		if !slices.Equal(got, want) {
 			t.Fatalf("runs %v of %v: sorted %v, want %v", bounds, xs, got, want)
 		}
-		got = mergeByKey(slices.Clone(xs), got[:0], &keys, func(x *item) int64 { return x.key })
+		got = slices.Clone(xs)
+		orderByKey(got, &scratch, func(x *item) int64 { return x.key })
 		if !slices.Equal(got, want) {
 			t.Fatalf("runs %v of %v: merged %v, want %v", bounds, xs, got, want)
 		}

@@ -246,10 +246,10 @@ func (s *Sky) EventsFor(ctx context.Context, p Place, specs []config.KindSpec, f
 // buffers are the slices one computation fills, kept by a caller that
 // computes chunk after chunk (EventChunks) so that each chunk reuses them.
 type buffers struct {
-	events, merged []Event
-	notes, mnotes  []Note
-	keys           []int64
-	crossings      [][]astro.Crossing // the thresholds' crossings (collector.prepare)
+	events        []Event
+	notes, mnotes []Note
+	order         orderScratch
+	crossings     [][]astro.Crossing // the thresholds' crossings (collector.prepare)
 }
 
 // eventsPerDate is about how many events specs give a date: one per kind,
@@ -265,33 +265,66 @@ func eventsPerDate(specs []config.KindSpec) int {
 	return n
 }
 
-// maxRuns is the number of ordered runs above which mergeByKey sorts
+// maxRuns is the number of ordered runs above which orderByKey sorts
 // instead of merging.
 const maxRuns = 64
 
-// mergeByKey appends to out the items of xs in the order of key, equal
-// keys in the order of xs (stable), as sortByKey does, for xs made of a few
-// runs already in order (each kind appends its own run of events): the
-// runs are merged through a heap of their next keys, each item moved once.
-// keys is a scratch buffer. With more than maxRuns runs it sorts
-// (sortByKey).
-func mergeByKey[T any](xs []T, out []T, keys *[]int64, key func(*T) int64) []T {
+// orderScratch is the working memory of orderByKey, kept from one call to
+// the next.
+type orderScratch struct {
+	keys  []int64
+	order []int32
+}
+
+// orderByKey puts xs in the order of key, equal keys in the order of xs (a
+// stable sort, as sortByKey gives), in place, for xs made of a few runs
+// already in order (each kind appends its own run of events): the runs are
+// merged through a heap of their next keys into a list of positions, and
+// the items are then moved along the cycles of that list, each once, so
+// that no second buffer of items is touched. With more than maxRuns runs
+// the positions are sorted instead.
+func orderByKey[T any](xs []T, s *orderScratch, key func(*T) int64) {
 	n := len(xs)
-	ks := slices.Grow((*keys)[:0], n)[:n]
-	*keys = ks
+	ks := slices.Grow(s.keys[:0], n)[:n]
+	s.keys = ks
 	var starts [maxRuns + 1]int
 	runs := 0
 	for i := range xs {
 		ks[i] = key(&xs[i])
 		if i == 0 || ks[i] < ks[i-1] {
 			if runs == maxRuns {
-				return sortByKey(xs, out, key)
+				runs = -1
+				for i := i + 1; i < n; i++ {
+					ks[i] = key(&xs[i])
+				}
+				break
 			}
 			starts[runs] = i
 			runs++
 		}
 	}
-	starts[runs] = n
+	if runs == 0 || runs == 1 {
+		return // in order already
+	}
+	order := slices.Grow(s.order[:0], n)
+	if runs < 0 {
+		for i := range n {
+			order = append(order, int32(i))
+		}
+		slices.SortStableFunc(order, func(a, b int32) int { return cmp.Compare(ks[a], ks[b]) })
+	} else {
+		starts[runs] = n
+		order = heapMerge(order, ks, starts[:runs+1])
+	}
+	s.order = order
+	permute(xs, order)
+}
+
+// heapMerge appends to order the positions of the keys ks, made of the
+// ordered runs ks[starts[r]:starts[r+1]], in the order of their keys (the
+// earlier run first on ties), through a heap of the runs' next keys.
+func heapMerge(order []int32, ks []int64, starts []int) []int32 {
+	runs := len(starts) - 1
 	var pos, end [maxRuns]int
 	var heap [maxRuns]int // runs by their next key (the earlier run on ties), least first
 	for r := range runs {
@@ -322,10 +355,9 @@ func mergeByKey[T any](xs []T, out []T, keys *[]int64, key func(*T) int64) []T {
 	for i := m/2 - 1; i >= 0; i-- {
 		down(i, m)
 	}
-	out = slices.Grow(out, n)
 	for m > 0 {
 		r := heap[0]
-		out = append(out, xs[pos[r]])
+		order = append(order, int32(pos[r]))
 		pos[r]++
 		if pos[r] == end[r] {
 			m--
@@ -333,7 +365,30 @@ func mergeByKey[T any](xs []T, out []T, keys *[]int64, key func(*T) int64) []T {
 		}
 		down(0, m)
 	}
-	return out
+	return order
+}
+
+// permute rearranges xs so that xs[i] is what xs[order[i]] was, moving
+// each item once along the cycles of order (a permutation of the
+// positions), which it uses up.
+func permute[T any](xs []T, order []int32) {
+	for i := range xs {
+		if order[i] < 0 || int(order[i]) == i {
+			continue
+		}
+		held := xs[i]
+		j := i
+		for {
+			k := int(order[j])
+			order[j] = -1
+			if k == i {
+				xs[j] = held
+				break
+			}
+			xs[j] = xs[k]
+			j = k
+		}
+	}
 }
 
 // dateRange returns the civil dates of first and last, or an error naming
@@ -361,8 +416,8 @@ func (s *Sky) eventsFor(ctx context.Context, p Place, specs []config.KindSpec, f
 		return nil, nil, fmt.Errorf("feed: %w", err)
 	}
 	// Each kind appends its own run of events (and of notes), in order or
-	// nearly so; the runs of events are then merged (mergeByKey), the
-	// notes put in order by buckets (sortByKey).
+	// nearly so; the runs of events are then merged in place
+	// (orderByKey), the notes put in order by buckets (sortByKey).
 	for _, k := range specs {
 		c.maxLit, c.spec = k.MaxIllumination, k
 		if err := c.add(k.Kind); err != nil {
@@ -370,9 +425,9 @@ func (s *Sky) eventsFor(ctx context.Context, p Place, specs []config.KindSpec, f
 		}
 	}
 	buf.events, buf.notes = c.events, c.notes
-	buf.merged = mergeByKey(c.events, buf.merged[:0], &buf.keys, func(e *Event) int64 { return e.Start.UnixNano() })
+	orderByKey(c.events, &buf.order, func(e *Event) int64 { return e.Start.UnixNano() })
 	buf.mnotes = sortByKey(c.notes, buf.mnotes[:0], func(n *Note) int64 { return n.Date.Unix() })
-	return buf.merged, buf.mnotes, nil
+	return c.events, buf.mnotes, nil
 }
 
 // sortByKey appends to out the items of xs in the order of key, equal keys

@@ -3,6 +3,7 @@ package astro
 import (
 	"math"
 	"slices"
+	"sync"
 )
 
 // The Sun's shared ephemeris needs the Earth's heliocentric position once a
@@ -87,7 +88,6 @@ var chebCos = func() (c [sunChebNodes][sunChebNodes]float64) {
 // (evalVSOP of slowTerms) to about 1e-15 of each term's amplitude.
 func slowNodes(jde0 float64, n int) (vals [3][]float64) {
 	xs := &chebCos[1]
-	const slowRestart = 32
 	m := n * sunChebNodes
 	tau := make([]float64, m)
 	for i := range n {
@@ -96,43 +96,56 @@ func slowNodes(jde0 float64, n int) (vals [3][]float64) {
 			tau[i*sunChebNodes+j] = (mid + 0.5*sunChebDays*xs[j] - J2000) / julianMillennium
 		}
 	}
-	const h = sunChebDays / julianMillennium // a block in millennia
-	part := make([]float64, m)
-	tp := make([]float64, m) // τᵖ
+	// L, B and R are summed on their own goroutines (each in the same
+	// order as alone): their sums are independent, and this is most of
+	// the fit's cost, which the daily samples wait for.
+	var wg sync.WaitGroup
 	for v := range 3 {
 		vals[v] = make([]float64, m)
-		for k := range m {
-			tp[k] = 1
-		}
-		for _, terms := range slowTerms[v] {
-			clear(part)
-			for _, t := range terms {
-				sr, cr := math.Sincos(t.c * h)
-				var C, S [sunChebNodes]float64 // node j's rotation: independent of the others'
-				for i := range n {
-					ps := part[i*sunChebNodes : (i+1)*sunChebNodes]
-					ts := tau[i*sunChebNodes : (i+1)*sunChebNodes]
-					if i%slowRestart == 0 {
-						for j := range sunChebNodes {
-							S[j], C[j] = math.Sincos(t.b + t.c*ts[j])
-						}
-					} else {
-						for j := range sunChebNodes {
-							C[j], S[j] = C[j]*cr-S[j]*sr, S[j]*cr+C[j]*sr
-						}
-					}
+		wg.Go(func() { slowSum(vals[v], slowTerms[v], tau, n) })
+	}
+	wg.Wait()
+	return vals
+}
+
+// slowSum adds to vals the terms of series (by power of τ) at the nodes
+// tau of n blocks, as slowNodes describes.
+func slowSum(vals []float64, series [][]vsopTerm, tau []float64, n int) {
+	const slowRestart = 32
+	const h = sunChebDays / julianMillennium // a block in millennia
+	m := len(vals)
+	part := make([]float64, m)
+	tp := make([]float64, m) // τᵖ
+	for k := range m {
+		tp[k] = 1
+	}
+	for _, terms := range series {
+		clear(part)
+		for _, t := range terms {
+			sr, cr := math.Sincos(t.c * h)
+			var C, S [sunChebNodes]float64 // node j's rotation: independent of the others'
+			for i := range n {
+				ps := part[i*sunChebNodes : (i+1)*sunChebNodes]
+				ts := tau[i*sunChebNodes : (i+1)*sunChebNodes]
+				if i%slowRestart == 0 {
 					for j := range sunChebNodes {
-						ps[j] += t.a * C[j]
+						S[j], C[j] = math.Sincos(t.b + t.c*ts[j])
+					}
+				} else {
+					for j := range sunChebNodes {
+						C[j], S[j] = C[j]*cr-S[j]*sr, S[j]*cr+C[j]*sr
 					}
 				}
-			}
-			for k := range m {
-				vals[v][k] += part[k] * tp[k]
-				tp[k] *= tau[k]
+				for j := range sunChebNodes {
+					ps[j] += t.a * C[j]
+				}
 			}
 		}
+		for k := range m {
+			vals[k] += part[k] * tp[k]
+			tp[k] *= tau[k]
+		}
 	}
-	return vals
 }
 
 // slowAt returns the slow part of L (not reduced), B and R at jde, which

@@ -399,6 +399,16 @@ func (e *Ephemeris) SunTransits(o Observer, from, to time.Time) ([]Transit, erro
 	return e.sun.transitList(st, from, to), nil
 }
 
+// AppendSunTransits is SunTransits appending to dst, so that a caller
+// asking span after span reuses one slice.
+func (e *Ephemeris) AppendSunTransits(dst []Transit, o Observer, from, to time.Time) ([]Transit, error) {
+	st, err := e.query(o, from, to)
+	if err != nil {
+		return nil, err
+	}
+	return e.sun.appendTransits(dst, st, from, to), nil
+}
+
 // SunAltitude returns the topocentric geometric altitude of the Sun's
 // centre (degrees, no refraction) at t.
 func (e *Ephemeris) SunAltitude(o Observer, t time.Time) (float64, error) {

@@ -16,7 +16,7 @@ package astro
 //	st := newSite(o)                                   // observer, checked first by o.Validate()
 //	ext := tr.extrema(st, a, b)                        // culminations over [a − 1 day, b + 1 day] (Unix s)
 //	xs := tr.crossings(st, ext, math.Sin(h0), a, b, nil) // crossings of geometric altitude h0 (rad) in [a, b)
-//	ts := tr.transits(st, a, b)                        // upper meridian transits in [a, b)
+//	ts := tr.transitList(st, from, to)                 // upper meridian transits in [from, to)
 //	sh := tr.sinAltitude(st, sec)                      // sine of the topocentric altitude
 //
 // A track samples the body once per step seconds (the Sun: one day) at UTC
@@ -608,9 +608,19 @@ func (tr *track) solve(st *site, sinH0, a, fa, b, fb, g, slope float64) float64 
 	return 0.5 * (a + b)
 }
 
-// transits returns the upper meridian transits (hour angle 0) in [a, b).
-func (tr *track) transits(st *site, a, b float64) []float64 {
-	var out []float64
+// transitList returns the upper meridian transits (hour angle 0) as
+// Transit values for the observer's site, with the topocentric geometric
+// altitude of the centre at each, within [from, to) after rounding to
+// time.Time. Shared by the Sun and the Moon.
+func (tr *track) transitList(st *site, from, to time.Time) []Transit {
+	return slices.Clip(tr.appendTransits(nil, st, from, to))
+}
+
+// appendTransits is transitList appending to out: each passage is found
+// from the one before.
+func (tr *track) appendTransits(out []Transit, st *site, from, to time.Time) []Transit {
+	a, b := unixSeconds(from), unixSeconds(to)
+	out = slices.Grow(out, int((b-a)/secondsPerDay)+2)
 	t := a
 	for {
 		tp := tr.passage(st, t, 0)
@@ -618,25 +628,11 @@ func (tr *track) transits(st *site, a, b float64) []float64 {
 			break
 		}
 		if tp >= a {
-			out = append(out, tp)
+			if u := timeFromUnix(tp); !u.Before(from) && u.Before(to) {
+				out = append(out, Transit{Time: u, Altitude: math.Asin(tr.sinAltitude(st, tp)) * rad2deg})
+			}
 		}
 		t = tp + 1
-	}
-	return slices.Clip(out)
-}
-
-// transitList is transits as Transit values for the observer's site, with
-// the topocentric geometric altitude of the centre at each, kept within
-// [from, to) after rounding to time.Time. Shared by the Sun and the Moon.
-func (tr *track) transitList(st *site, from, to time.Time) []Transit {
-	ts := tr.transits(st, unixSeconds(from), unixSeconds(to))
-	out := make([]Transit, 0, len(ts))
-	for _, s := range ts {
-		t := timeFromUnix(s)
-		if t.Before(from) || !t.Before(to) {
-			continue
-		}
-		out = append(out, Transit{Time: t, Altitude: math.Asin(tr.sinAltitude(st, s)) * rad2deg})
 	}
 	return out
 }

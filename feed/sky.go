@@ -250,7 +250,37 @@ type buffers struct {
 	notes, mnotes []Note
 	order         orderScratch
 	crossings     [][]astro.Crossing // the thresholds' crossings (collector.prepare)
+	// the collector's working slices by date (day starts and ends, day
+	// lengths, dates seen) and the Sun's transits, taken again by the
+	// next chunk's collector
+	times     reuse[time.Time]
+	durations reuse[time.Duration]
+	flags     reuse[bool]
+	transits  []astro.Transit
 }
+
+// reuse hands out zeroed slices from a list kept from one chunk to the
+// next: a chunk's collector takes the slices it needs, and once the chunk
+// is done (release) the next one takes the same slices again.
+type reuse[T any] struct {
+	list [][]T
+	used int
+}
+
+// take returns n zero values.
+func (r *reuse[T]) take(n int) []T {
+	if r.used == len(r.list) {
+		r.list = append(r.list, nil)
+	}
+	s := slices.Grow(r.list[r.used][:0], n)[:n]
+	clear(s)
+	r.list[r.used] = s
+	r.used++
+	return s
+}
+
+// release makes every slice taken available again.
+func (r *reuse[T]) release() { r.used = 0 }
 
 // eventsPerDate is about how many events specs give a date: one per kind,
 // two for a threshold crossed both ways.
@@ -407,7 +437,10 @@ func (s *Sky) eventsFor(ctx context.Context, p Place, specs []config.KindSpec, f
 	if err != nil {
 		return nil, nil, err
 	}
-	c := &collector{ctx: ctx, sky: s, p: p, first: first, last: last, events: buf.events[:0], notes: buf.notes[:0], xsBuf: &buf.crossings}
+	buf.times.release()
+	buf.durations.release()
+	buf.flags.release()
+	c := &collector{ctx: ctx, sky: s, p: p, first: first, last: last, events: buf.events[:0], notes: buf.notes[:0], xsBuf: &buf.crossings, scratch: buf}
 	// room for about every event at once: grown step by step, the buffer
 	// would be copied a dozen times
 	days := int(last.Sub(first).Hours()/24) + 1
@@ -498,10 +531,36 @@ type collector struct {
 	// xsBuf, when set, holds slices the first pass of prepare fills (a
 	// chunk's buffers, reused from chunk to chunk)
 	xsBuf *[][]astro.Crossing
+	// scratch, when set, is where the working slices by date come from
+	// (times, durations, flags): a chunk's buffers
+	scratch *buffers
 
 	transits    []astro.Transit             // the Sun's transits over first-1..last, computed once (sunTransits)
 	noonsByDate map[time.Time]astro.Transit // the same by local date (noonOf)
 	zc          *zoneCache                  // see zone
+}
+
+// times, durations and flags return n zero values, from the chunk's
+// buffers when the collector has them.
+func (c *collector) times(n int) []time.Time {
+	if c.scratch == nil {
+		return make([]time.Time, n)
+	}
+	return c.scratch.times.take(n)
+}
+
+func (c *collector) durations(n int) []time.Duration {
+	if c.scratch == nil {
+		return make([]time.Duration, n)
+	}
+	return c.scratch.durations.take(n)
+}
+
+func (c *collector) flags(n int) []bool {
+	if c.scratch == nil {
+		return make([]bool, n)
+	}
+	return c.scratch.flags.take(n)
 }
 
 // zone returns the collector's cache of its zone's periods.
@@ -552,7 +611,7 @@ var everyDate = map[string]bool{
 func (c *collector) noteSilent(k config.Kind, n0, m0 int) {
 	first := c.first.Unix() / secondsPerDay
 	n := int(c.last.Unix()/secondsPerDay-first) + 1
-	has := make([]bool, n) // by date, from first
+	has := c.flags(n) // by date, from first
 	see := func(d time.Time) {
 		if i := d.Unix()/secondsPerDay - first; i >= 0 && i < int64(n) {
 			has[i] = true
@@ -841,7 +900,7 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 func (c *collector) dayStarts() []time.Time {
 	if c.starts == nil {
 		n := daysBetween(c.first, c.last) + 4
-		c.starts = make([]time.Time, n)
+		c.starts = c.times(n)
 		// Within one period of the zone (between two clock changes) the
 		// local midnights lie 24 h apart: the next one is the last plus
 		// a day while that stays inside the period (no instant between
@@ -905,9 +964,16 @@ func (c *collector) noonOf(d time.Time) (astro.Transit, bool, error) {
 func (c *collector) sunTransits() ([]astro.Transit, error) {
 	if c.transits == nil {
 		from, to := midnight(c.first.AddDate(0, 0, -1), c.p.Location), midnight(c.last.AddDate(0, 0, 1), c.p.Location)
-		ts, err := c.sky.eph.SunTransits(c.p.Observer, from, to)
+		var dst []astro.Transit
+		if c.scratch != nil {
+			dst = c.scratch.transits[:0]
+		}
+		ts, err := c.sky.eph.AppendSunTransits(dst, c.p.Observer, from, to)
 		if err != nil {
 			return nil, err
+		}
+		if c.scratch != nil {
+			c.scratch.transits = ts
 		}
 		c.transits = ts
 	}
@@ -1054,7 +1120,7 @@ func (c *collector) dayEnds(alt float64) ([]time.Time, error) {
 		return th.lateEnds, nil
 	}
 	first := c.first.AddDate(0, 0, -2)
-	late := make([]time.Time, daysBetween(first, c.last)+2)
+	late := c.times(daysBetween(first, c.last) + 2)
 	for k := 0; k+1 < len(th.xs); k++ {
 		rise, set := th.xs[k], th.xs[k+1]
 		if rise.Direction != astro.Rising || set.Direction != astro.Setting || set.Time.Sub(rise.Time) >= 24*time.Hour {
@@ -1103,7 +1169,7 @@ func (c *collector) aboveFrom(alt float64, back int) ([]time.Duration, error) {
 		xs = xs[1:]
 	}
 	n := daysBetween(c.first, c.last) + 1 + back
-	lengths := make([]time.Duration, n)
+	lengths := c.durations(n)
 	cur := from
 	starts := c.dayStarts()
 	for day := 0; day < n; {

@@ -4,6 +4,7 @@ import (
 	"context"
 	"fmt"
 	"math"
+	"runtime/debug"
 	"sort"
 	"strings"
 	"time"
@@ -291,6 +292,9 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 			specs = append(specs, config.KindSpec{Kind: k})
 		}
 	}
+	if o.format == "json" {
+		defer jsonGC(g.getenv)()
+	}
 	sky, err := feed.NewSky(from, to)
 	if err != nil {
 		return inputError{err}
@@ -314,6 +318,28 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 		return err
 	}
 	return out.close()
+}
+
+// jsonGCPercent is the GC percent while events are streamed as JSON. The
+// live heap is then the ephemeris and a chunk per core (about 4 MB for 20
+// years, 8 MB for 100), and the JSON writer leaves next to no garbage. With
+// the runtime's default (collect when the heap has doubled) the 20-year
+// listing, which allocates 4.3 MB in all, collected once, and the runtime
+// gave the freed pages back to the system and took them again: 550 of its
+// 2,330 page faults and about a tenth of its CPU time (GOGC=200 and
+// GOGC=off alike: 1,785 faults). With four times the live heap allowed as
+// garbage it does not collect at all, and 100 years take 23 MB. (CSV and
+// the table leave a string or two per row: they keep the default.)
+const jsonGCPercent = 400
+
+// jsonGC applies jsonGCPercent unless GOGC is set in the environment (the
+// user's choice wins); the returned func puts the previous percent back.
+func jsonGC(getenv func(string) (string, bool)) (restore func()) {
+	if _, ok := getenv("GOGC"); ok {
+		return func() {}
+	}
+	prev := debug.SetGCPercent(jsonGCPercent)
+	return func() { debug.SetGCPercent(prev) }
 }
 
 const jsonTime = "2006-01-02T15:04:05.000Z07:00"

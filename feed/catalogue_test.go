@@ -953,8 +953,8 @@ func TestSkylineNoteTexts(t *testing.T) {
 	if !strings.HasPrefix(moon, "The Moon stays behind the skyline all day") {
 		t.Errorf("3 February, no moonrise: %s", moon)
 	}
-	if lamps := titles(entries("2027-02-20", "2027-02-20", "lighting:12h")); !strings.Contains(lamps, "Supplemental lighting (the Sun stays behind the skyline, centred on solar noon)") ||
-		!strings.Contains(lamps, "Natural day (direct Sun over the site's skyline) 0 min") {
+	if lamps := titles(entries("2027-02-20", "2027-02-20", "lighting:12h")); !strings.Contains(lamps, "The Sun stays behind the skyline: lamps on at ") ||
+		!strings.Contains(lamps, "centred on solar noon") || !strings.Contains(lamps, "Direct Sun over the skyline 0 min; target 12 h.") {
 		t.Errorf("lamps on a date without direct Sun: %s", lamps)
 	}
 	jun := titles(entries("2027-06-20", "2027-06-20", "sunrise"))

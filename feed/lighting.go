@@ -431,16 +431,18 @@ func (c shownClock) appendSecond(b []byte) []byte {
 }
 
 // lightingText is the text of a lighting kind's entries that is the same
-// on every date, written once per feed.
+// on every date, written once per feed. What the kind's entries mean (what
+// counts as natural light, where the lamps go, their limits) is in the
+// calendar's description (lightingMeaning); each entry keeps its own
+// numbers.
 type lightingText struct {
 	key     lightingKey
+	natural string // "Natural day " or "Direct Sun over the skyline "
 	target  string // "16 h"
-	natural string // "Natural day (sunrise to sunset) "
-	site    string // " at <site>; target photoperiod 16 h.\n"
+	goal    string // "; target 16 h.\n"
 	limits  string // "lamps on no earlier than 05:30, off no later than 22:00"
 	clipped string // why a clipped period falls short
 	minimum string // "15 min"
-	closing string
 }
 
 // lightingKey is what a lighting kind's text depends on.
@@ -456,25 +458,21 @@ func (w *entryWriter) lightingText(spec *config.KindSpec) *lightingText {
 		return w.lamp
 	}
 	target := amount(spec.Kind.DayLength)
-	lt := &lightingText{key: key, target: target, natural: "Natural day (sunrise to sunset) ",
-		site: " at " + w.site.where + "; target photoperiod " + target + ".\n"}
+	lt := &lightingText{key: key, natural: "Natural day ", target: target, goal: "; target " + target + ".\n"}
 	if spec.Natural != config.NaturalCivil && len(w.site.Skyline) > 0 {
-		lt.natural = "Natural day (direct Sun over the site's skyline) "
+		lt.natural = "Direct Sun over the skyline "
 	}
-	if spec.Natural == config.NaturalCivil {
-		lt.natural = "Natural day (civil dawn to civil dusk) "
-		lt.closing = "Civil twilight is counted as natural light (common practice: twilight still drives photoperiod responses).\n"
-	}
-	lt.closing += "Computed for planning from the site's coordinates; follow the lighting programme of the crop or herd."
 	lt.limits = limitsOf(*spec).text
-	lt.clipped = "Clipped (" + lt.limits + "): the target of " + target + " is not reached today.\n"
+	lt.clipped = "Clipped (" + lt.limits + "): the target is not reached today.\n"
 	lt.minimum = amount(spec.MinDuration.D())
 	w.lamp = lt
 	return lt
 }
 
 // appendDescription appends the description of a lamp period to dst and
-// its title to title.
+// its title to title: "Evening lamps on at 16:15:43 CET, off at 23:00:00
+// CET (6 h 44 min).\nNatural day 8 h 32 min; target 16 h.", and why the
+// period is clipped or longer than its share when it is.
 func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Event) ([]byte, []byte) {
 	on, off := shownAt(e.Start, s.zone), shownAt(e.End, s.zone)
 	t := on.appendMinute(append(title, "Lamps on "...))
@@ -488,22 +486,30 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	} else {
 		t = append(append(append(t, ", to reach "...), lt.target...), ')')
 	}
-	part := e.Part
-	whole := part == partPolarNight || part == partBehindSkyline // one period round solar noon
-	if whole {
-		part = "polar night, centred on solar noon"
-		if e.Part == partBehindSkyline {
-			part = "the Sun stays behind the skyline, centred on solar noon"
-		}
-		if e.Clipped {
-			part = strings.Replace(part, "centred on solar noon", "as near solar noon as the limits allow", 1)
-		}
+	whole := e.Part == partPolarNight || e.Part == partBehindSkyline // one period round solar noon
+	b := dst
+	switch {
+	case e.Part == partPolarNight:
+		b = append(b, "Polar night: lamps on at "...)
+	case e.Part == partBehindSkyline:
+		b = append(b, "The Sun stays behind the skyline: lamps on at "...)
+	case e.Part == partMorning:
+		b = append(b, "Morning lamps on at "...)
+	default:
+		b = append(b, "Evening lamps on at "...)
 	}
-	b := append(append(append(dst, "Supplemental lighting ("...), part...), "): lamps on at "...)
 	b = on.appendSecond(b)
 	b = off.appendSecond(append(b, ", off at "...))
-	b = append(appendHM(append(b, " ("...), e.Lamp), ").\n"...)
-	b = append(appendHM(append(b, lt.natural...), e.DayLength), lt.site...)
+	b = appendHM(append(b, " ("...), e.Lamp)
+	switch {
+	case whole && e.Clipped:
+		b = append(b, "), as near solar noon as the limits allow.\n"...)
+	case whole:
+		b = append(b, "), centred on solar noon.\n"...)
+	default:
+		b = append(b, ").\n"...)
+	}
+	b = append(appendHM(append(b, lt.natural...), e.DayLength), lt.goal...)
 	other := partMorning // the other period of lamps: both
 	if e.Part == partMorning {
 		other = partEvening
@@ -512,8 +518,7 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	case whole && e.Clipped && e.Short:
 		b = append(b, lt.clipped...)
 	case whole && e.Clipped:
-		b = append(append(append(append(b, "Moved within the limits ("...), lt.limits...), "): the target of "...), lt.target...)
-		b = append(b, " is reached.\n"...)
+		b = append(append(append(b, "Moved within the limits ("...), lt.limits...), "): the target is reached.\n"...)
 	case e.MadeUp > 0 && e.MadeUpWhy == "minimum":
 		b = append(appendHM(append(b, "All of the shortfall in one period: the "...), e.MadeUp), " "...)
 		b = append(append(append(append(b, other...), " period would be under the minimum of "...), lt.minimum...), ".\n"...)
@@ -531,12 +536,47 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		b = append(b, lt.clipped...)
 	case e.Clipped:
 		b = append(append(append(append(b, "Clipped ("...), lt.limits...), "); the "...), other...)
-		b = append(append(append(b, " lamps make up the difference: the target of "...), lt.target...), " is reached.\n"...)
+		b = append(b, " lamps make up the difference: the target is reached.\n"...)
 	case e.Short:
-		b = append(append(append(b, "The target of "...), lt.target...), " is not reached today.\n"...)
+		b = append(b, "The target is not reached today.\n"...)
 	}
-	return append(b, lt.closing...), t
+	return b[:len(b)-1], t // without the last line's newline
 }
+
+// lightingMeaning says, once in the calendar's description, what the
+// entries of a lighting kinds entry mean: "Supplemental lighting to 16 h:
+// lamp periods that make the natural day (sunrise to sunset) up to 16 h,
+// in the evening; off no later than 23:00."
+func lightingMeaning(s *config.Site, spec config.KindSpec) string {
+	target := amount(spec.Kind.DayLength)
+	natural := "sunrise to sunset"
+	switch {
+	case spec.Natural == config.NaturalCivil:
+		natural = "civil dawn to civil dusk"
+	case len(s.Skyline) > 0:
+		natural = "the direct Sun over the site's skyline"
+	}
+	where := map[string]string{config.LampsMorning: "in the morning", config.LampsBoth: "half in the morning, half in the evening"}[spec.Lamps]
+	if where == "" {
+		where = "in the evening"
+	}
+	m := "Supplemental lighting to " + target + ": lamp periods that make the natural day (" + natural + ") up to " + target + ", " + where
+	if l := limitsOf(spec).text; strings.HasPrefix(l, "off") {
+		m += "; lamps " + l
+	} else if l != "" {
+		m += "; " + l
+	}
+	if d := spec.MinDuration.D(); d > 0 {
+		m += "; none under " + amount(d)
+	}
+	return m + "."
+}
+
+// Lines of the calendar's description for feeds with a lighting kind.
+const (
+	civilLightMeaning = "Civil twilight is counted as natural light (common practice: twilight still drives photoperiod responses)."
+	lightingAdvice    = "Lamp times are for planning; follow the lighting programme of the crop or herd."
+)
 
 // describeLightingNote gives the note at the start of a stretch of dates
 // that need no lamps, or of a date that needs lamps none of which are

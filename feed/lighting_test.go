@@ -348,7 +348,7 @@ func TestLightingBothMakesUp(t *testing.T) {
 			t.Errorf("%s: %q, short %v: the morning makes up the evening, the target is reached", x.Facts.Part, x.Title, x.Facts.Short)
 		}
 	}
-	if !strings.Contains(e.Description, "the morning lamps make up the difference: the target of 16 h is reached") ||
+	if !strings.Contains(e.Description, "the morning lamps make up the difference: the target is reached") ||
 		!strings.Contains(m.Description, "longer than half the shortfall, to make up for the evening lamps, which are clipped") {
 		t.Errorf("descriptions do not say who makes up what:\n%s\n%s", m.Description, e.Description)
 	}
@@ -562,12 +562,12 @@ func TestLightingBehindSkylineIsNotPolarNight(t *testing.T) {
 	for _, s := range []*config.Site{skyline, hills} {
 		for _, d := range []string{"2015-02-21", "2015-10-21"} {
 			p, desc := part(s, d, "")
-			if p != partBehindSkyline || !strings.Contains(desc, "Supplemental lighting (the Sun stays behind the skyline, centred on solar noon)") ||
-				strings.Contains(desc, "polar night") {
+			if p != partBehindSkyline || !strings.HasPrefix(desc, "The Sun stays behind the skyline: lamps on at ") ||
+				!strings.Contains(desc, "), centred on solar noon.\n") || strings.Contains(desc, "olar night") {
 				t.Errorf("%s behind a 5° skyline (%v): part %q\n%s", d, s.Skyline, p, desc)
 			}
 		}
-		if p, desc := part(s, "2015-12-21", ""); p != partPolarNight || !strings.Contains(desc, "(polar night, centred on solar noon)") {
+		if p, desc := part(s, "2015-12-21", ""); p != partPolarNight || !strings.HasPrefix(desc, "Polar night: lamps on at ") || !strings.Contains(desc, "), centred on solar noon.\n") {
 			t.Errorf("21 December behind a 5° skyline: part %q\n%s", p, desc)
 		}
 	}
@@ -593,4 +593,86 @@ func behind5(t *testing.T) (skyline, hills *config.Site) {
 	hills = site(t, "lat80", 80, 0, "UTC")
 	hills.Horizon = 5
 	return skyline, hills
+}
+
+// What a lighting kind's entries mean — what counts as natural light,
+// where the lamps go and their limits, civil twilight counted as light
+// (common practice), the advice to follow the crop's or herd's programme —
+// is written once, in the calendar's description; each lamp entry keeps its
+// own numbers: its lamp times and length, the natural day, the target, and
+// why it is clipped or longer than its half.
+func TestLightingMeaningOncePerCalendar(t *testing.T) {
+	s := site(t, "vienna", 48.2, 16.4, "Europe/Vienna")
+	sk := sky(t, "2027-01-01", "2027-01-31")
+	tomato := lightingSpec(t, "lighting:16h", func(ks *config.KindSpec) {
+		ks.LatestOff, ks.MinDuration = "23:00", config.Duration(10*time.Minute)
+	})
+	seedling := lightingSpec(t, "lighting:14h30m", func(ks *config.KindSpec) {
+		ks.Lamps, ks.Natural, ks.EarliestOn = config.LampsBoth, config.NaturalCivil, "05:30"
+	})
+	sunrise := config.KindSpec{Kind: mustKinds(t, "sunrise")[0]}
+	f := &config.Feed{ID: "f", Kinds: []config.KindSpec{tomato, seedling, sunrise}}
+	cal, err := sk.Calendar(context.Background(), s, f, date("2027-01-10"), date("2027-01-16"), Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := []string{
+		"Supplemental lighting to 16 h: lamp periods that make the natural day (sunrise to sunset) up to 16 h, in the evening; lamps off no later than 23:00; none under 10 min.",
+		"Supplemental lighting to 14 h 30 min: lamp periods that make the natural day (civil dawn to civil dusk) up to 14 h 30 min, half in the morning, half in the evening; lamps on no earlier than 05:30.",
+		civilLightMeaning, lightingAdvice,
+	}
+	for _, m := range want {
+		if n := strings.Count(cal.Description, m); n != 1 {
+			t.Errorf("%q %d times in the calendar's description:\n%s", m, n, cal.Description)
+		}
+	}
+	if !strings.Contains(civilLightMeaning, "common practice") || !strings.Contains(lightingAdvice, "lighting programme of the crop or herd") {
+		t.Errorf("lines %q, %q", civilLightMeaning, lightingAdvice)
+	}
+	loc := s.TimeZone.Location
+	lamps := 0
+	for _, e := range cal.Entries {
+		if !strings.HasPrefix(e.Kind, "lighting:") {
+			continue
+		}
+		lamps++
+		for _, w := range append(want, "Civil twilight", "lighting programme", "Natural day (", s.Name, "Supplemental lighting") {
+			if strings.Contains(e.Description, w) {
+				t.Errorf("%s %s repeats %q:\n%s", e.Date.Format(time.DateOnly), e.Kind, w, e.Description)
+			}
+		}
+		// its own numbers: the lamp times to the second, the lamp time,
+		// the natural day and the target
+		target := "16 h"
+		if e.Kind == "lighting:14h30m" {
+			target = "14 h 30 min"
+		}
+		line := strings.ToUpper(e.Facts.Part[:1]) + e.Facts.Part[1:] + " lamps on at " + localClock(e.Start, loc) + ", off at " + localClock(e.End, loc) + " (" + hm(e.Facts.Lamp) + ").\n" +
+			"Natural day " + hm(e.Facts.DayLength) + "; target " + target + "."
+		if !strings.HasPrefix(e.Description, line) {
+			t.Errorf("%s %s: description\n%s\nwant it to start\n%s", e.Date.Format(time.DateOnly), e.Kind, e.Description, line)
+		}
+		if e.Facts.Short != strings.Contains(e.Description, "the target is not reached today") {
+			t.Errorf("%s %s: short %v:\n%s", e.Date.Format(time.DateOnly), e.Kind, e.Facts.Short, e.Description)
+		}
+		if len(e.Description) > 300 {
+			t.Errorf("%s %s: %d bytes of description:\n%s", e.Date.Format(time.DateOnly), e.Kind, len(e.Description), e.Description)
+		}
+	}
+	if lamps != 3*7 { // the tomato house's evening, the seedlings' morning and evening
+		t.Errorf("%d lamp entries in 7 days, want 21", lamps)
+	}
+	// a feed without lighting has none of these lines; without natural:
+	// civil, no line on civil twilight
+	for _, kinds := range [][]config.KindSpec{{sunrise}, {tomato}} {
+		cal, err := sk.Calendar(context.Background(), s, &config.Feed{ID: "g", Kinds: kinds}, date("2027-01-10"), date("2027-01-10"), Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		lit := kinds[0].Kind.Name == config.KindLighting
+		if strings.Contains(cal.Description, civilLightMeaning) || strings.Contains(cal.Description, lightingAdvice) != lit ||
+			strings.Contains(cal.Description, "Supplemental lighting") != lit {
+			t.Errorf("%s: calendar description\n%s", kinds[0].Kind, cal.Description)
+		}
+	}
 }

@@ -203,7 +203,7 @@ func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parse
 	cats := []string{"Plan"}
 	for i, pl := range parsed {
 		w.alarm = pl.alarm
-		pt := newPlanText(pl, w.site)
+		pt := newPlanText(pl)
 		// a plan's UID keys differ by date; they are counted in seen only
 		// when another plan has the same title and date rule
 		pt.counted = true
@@ -492,12 +492,11 @@ type planText struct {
 	endWords   string
 	startName  string // the start event in words, "astronomical dusk"
 	endName    string
-	where      string
 	counted    bool // the plan's dates are each once in its UID keys: no need to count them in seen
 }
 
-func newPlanText(pl *plan, site *siteInfo) *planText {
-	pt := &planText{where: site.where}
+func newPlanText(pl *plan) *planText {
+	pt := &planText{}
 	if r := pl.rule.Type; r == config.RuleEvent || r == config.RuleWeekdayOf {
 		pt.rule = ruleText(pl.rule)
 	}
@@ -552,7 +551,7 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 	}
 	if pl.start == nil {
 		allDay()
-		return done(append(append(append(b, "All day at "...), pt.where...), '.'))
+		return done(append(b, "All day."...))
 	}
 	start, ok, err := planTime(*pl.start, d, loc, times)
 	if err != nil {
@@ -569,7 +568,7 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 			t, _ := describeNote(w.site, n)
 			b = append(append(append(b, " ("...), t...), ')')
 		}
-		return done(append(append(append(b, " at "...), pt.where...), '.'))
+		return done(append(b, '.'))
 	}
 	en.Start = start
 	b = append(z.appendClock(append(b, "From "...), start), pt.startWords...)
@@ -601,7 +600,7 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 			b = append(ed.AppendFormat(append(b, " the next day ("...), "Mon 2 Jan"), ')')
 		}
 	}
-	b = append(append(append(b, " at "...), pt.where...), '.')
+	b = append(b, '.')
 	// the legal caution is for times the sky sets; a plan from 23:30 to
 	// 00:30 by the clock has none
 	if !pl.start.IsClock || (pl.end != nil && !pl.end.IsClock) {

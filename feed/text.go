@@ -371,19 +371,25 @@ func CalendarDescription(s *config.Site, f *config.Feed) string {
 
 // kindMeanings are the sentences that say what the entries of the kinds of
 // specs mean, once for each kind (a group's members included) whose entries
-// leave it out: sunrise and sunset, the twilights, golden hour, blue hour
-// and sun bands. Their entries say what they are and give their own times
+// leave it out: sunrise and sunset, the twilights, golden hour, blue hour,
+// sun bands and supplemental lighting (lightingMeaning, with what counts as
+// natural light and the advice for lamps once). Their entries say what they are and give their own times
 // and numbers ("Civil dawn at 06:14:47 CET."); the meaning is the same on
 // every date.
 func kindMeanings(s *config.Site, specs []config.KindSpec) []string {
 	var out []string
-	azimuth := false
+	azimuth, lighting, civilLight := false, false, false
 	add := func(m string) {
 		if m != "" && !slices.Contains(out, m) {
 			out = append(out, m)
 		}
 	}
 	for _, spec := range specs {
+		if spec.Kind.Name == config.KindLighting {
+			add(lightingMeaning(s, spec))
+			lighting, civilLight = true, civilLight || spec.Natural == config.NaturalCivil
+			continue
+		}
 		for _, k := range spec.Kind.Members() {
 			switch k.Name {
 			case "golden-hour", "blue-hour":
@@ -401,6 +407,12 @@ func kindMeanings(s *config.Site, specs []config.KindSpec) []string {
 	}
 	if azimuth {
 		out = append(out, azimuthMeaning)
+	}
+	if civilLight {
+		out = append(out, civilLightMeaning)
+	}
+	if lighting {
+		out = append(out, lightingAdvice)
 	}
 	return out
 }

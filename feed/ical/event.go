@@ -62,8 +62,9 @@ type eventLines struct {
 	alarmHead, alarmTail []byte
 
 	// summaries are the SUMMARY lines of the last titles written (see
-	// summaryLine): a feed's titles repeat from date to date.
-	summaries   [4]titleLine
+	// summaryLine): a feed's titles repeat from date to date (the
+	// fleet benchmark's feeds have six a day).
+	summaries   [8]titleLine
 	nextSummary int
 }
 

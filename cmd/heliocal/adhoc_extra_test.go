@@ -15,7 +15,7 @@ import (
 // flat horizon (the Sun needs time to climb above the hills: common
 // practice).
 func TestAdhocNameAlarmHorizon(t *testing.T) {
-	build := adhocFeed(newLayout(""), 24*time.Hour)
+	build := adhocFeedBytes(newLayout(""), 24*time.Hour)
 	base := serve.AdhocQuery{Latitude: -33.45, Longitude: -70.66, Location: mustZone(t, "America/Santiago"),
 		Kinds: []string{"sunrise"}, Start: time.Date(2026, 6, 1, 0, 0, 0, 0, time.UTC), Days: 3}
 	flat, err := build(context.Background(), base, nil)
@@ -62,7 +62,7 @@ func firstStart(t *testing.T, data []byte) time.Time {
 // configuration's kinds entry offset does: 30 minutes before sunset is the
 // sunset's time less 30 minutes.
 func TestAdhocOffset(t *testing.T) {
-	build := adhocFeed(newLayout(""), 24*time.Hour)
+	build := adhocFeedBytes(newLayout(""), 24*time.Hour)
 	base := serve.AdhocQuery{Latitude: -33.45, Longitude: -70.66, Location: mustZone(t, "America/Santiago"),
 		Kinds: []string{"sunset"}, Start: time.Date(2026, 6, 1, 0, 0, 0, 0, time.UTC), Days: 3}
 	plain, err := build(context.Background(), base, nil)
@@ -94,7 +94,7 @@ func TestAdhocOffset(t *testing.T) {
 // when the eastern hills are higher (the Sun rises in the east-north-east
 // at 33° S in June: common practice).
 func TestAdhocSkylineFeed(t *testing.T) {
-	build := adhocFeed(newLayout(""), 24*time.Hour)
+	build := adhocFeedBytes(newLayout(""), 24*time.Hour)
 	base := serve.AdhocQuery{Latitude: -33.45, Longitude: -70.66, Location: mustZone(t, "America/Santiago"),
 		Kinds: []string{"sunrise"}, Start: time.Date(2026, 6, 1, 0, 0, 0, 0, time.UTC), Days: 3}
 	run := func(q serve.AdhocQuery) time.Time {

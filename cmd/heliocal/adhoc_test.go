@@ -1,6 +1,7 @@
 package main
 
 import (
+	"bytes"
 	"context"
 	"errors"
 	"strings"
@@ -10,6 +11,17 @@ import (
 
 	"heliocal/feed/serve"
 )
+
+// adhocFeedBytes is adhocFeed with the feed appended to dst and returned
+// whole.
+func adhocFeedBytes(l layout, refresh time.Duration) func(context.Context, serve.AdhocQuery, []byte) ([]byte, error) {
+	build := adhocFeed(l, refresh)
+	return func(ctx context.Context, q serve.AdhocQuery, dst []byte) ([]byte, error) {
+		w := bytes.NewBuffer(dst)
+		err := build(ctx, q, w)
+		return w.Bytes(), err
+	}
+}
 
 // countingContext is cancelled from its limit-th Err() call on, and counts
 // the calls: the per-date loops ask Err() as they go, so the count says how
@@ -33,7 +45,7 @@ func (c *countingContext) Err() error {
 func TestAdhocFeedStopsWithItsContext(t *testing.T) {
 	q := serve.AdhocQuery{Latitude: 23.1, Longitude: -82.4, Location: mustZone(t, "America/Havana"),
 		Kinds: []string{"moonrise", "sunrise", "dark-window"}, Start: time.Date(2026, 1, 1, 0, 0, 0, 0, time.UTC), Days: 400}
-	build := adhocFeed(newLayout(""), 24*time.Hour)
+	build := adhocFeedBytes(newLayout(""), 24*time.Hour)
 	// How many checks a whole build makes.
 	whole := &countingContext{Context: context.Background(), limit: 1 << 30}
 	if _, err := build(whole, q, nil); err != nil {
@@ -70,7 +82,7 @@ func mustZone(t *testing.T, name string) *time.Location {
 // range, and a feed at either end builds with events on its first and last
 // dates.
 func TestAdhocFeedAtTheEndsOfTheRange(t *testing.T) {
-	build := adhocFeed(newLayout(""), 24*time.Hour)
+	build := adhocFeedBytes(newLayout(""), 24*time.Hour)
 	for _, start := range []time.Time{
 		time.Date(serve.DefaultAdhocMinYear, 1, 1, 0, 0, 0, 0, time.UTC),
 		time.Date(serve.DefaultAdhocMaxYear, 12, 1, 0, 0, 0, 0, time.UTC),

@@ -99,7 +99,7 @@ func benchAdhocFeed(b *testing.B, skyline [][2]float64) {
 	if err != nil {
 		b.Fatal(err)
 	}
-	build := adhocFeed(newLayout(""), 24*time.Hour)
+	build := adhocFeedBytes(newLayout(""), 24*time.Hour)
 	q := serve.AdhocQuery{Latitude: 47.8, Longitude: 13.05, Location: vienna,
 		Kinds: []string{"civil-dawn", "civil-dusk", "sunrise", "sunset"},
 		Start: time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC), Days: 365, Skyline: skyline}

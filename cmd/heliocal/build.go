@@ -4,6 +4,7 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"io"
 	"strings"
 	"sync"
 	"time"
@@ -325,16 +326,16 @@ func adhocFeedFrom(current func() adhocSettings) serve.AdhocFunc {
 	calendar := adhocCalendarFrom(current)
 	// encoders keep their working memory from one feed to the next
 	encoders := sync.Pool{New: func() any { return ical.NewEncoder(ical.Options{Version: versionString()}) }}
-	return func(ctx context.Context, q serve.AdhocQuery, dst []byte) ([]byte, error) {
+	return func(ctx context.Context, q serve.AdhocQuery, w io.Writer) error {
 		cal, err := calendar(ctx, q)
 		if err != nil {
-			return nil, err
+			return err
 		}
 		enc := encoders.Get().(*ical.Encoder)
 		defer encoders.Put(enc)
-		data, err := enc.Append(dst, cal)
-		cal.Release() // the next feed's entries take its memory
-		return data, err
+		_, err = enc.WriteTo(w, cal) // in pieces, compressed as they come
+		cal.Release()                // the next feed's entries take its memory
+		return err
 	}
 }
 

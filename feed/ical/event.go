@@ -122,13 +122,15 @@ func (w *writer) setLines(cfg *ics.SerializationConfiguration) {
 }
 
 // SerializeTo writes the event's content lines to out in one Write, or
-// appends them straight to the buffer when out is an Encoder's.
+// appends them straight to the buffer when out is an Encoder's (see
+// appendWriter).
 func (ev *vevent) SerializeTo(out io.Writer, cfg *ics.SerializationConfiguration) error {
 	w := ev.w
 	w.setLines(cfg)
 	if aw, ok := out.(*appendWriter); ok {
 		aw.b = ev.appendTo(aw.b)
-		return nil
+		aw.pieceDone()
+		return aw.err
 	}
 	w.out = ev.appendTo(w.out[:0])
 	_, err := out.Write(w.out)

@@ -115,6 +115,8 @@ type Encoder struct {
 	w     writer
 	seen  uidSet
 	comps []ics.Component
+	// piece is WriteTo's buffer, kept for the next calendar.
+	piece []byte
 	// spanEntries, when not nil, stand for the calendar's entries in
 	// sizing the VTIMEZONE (see NewStream).
 	spanEntries []feed.Entry
@@ -147,14 +149,69 @@ func (e *Encoder) Append(dst []byte, c *feed.Calendar) ([]byte, error) {
 	return out.b, nil
 }
 
+// WriteTo writes c's iCalendar file to out, the bytes of Marshal, in
+// pieces of about streamPiece bytes as they are rendered, and returns how
+// many it wrote. The whole file is never held: a writer that compresses
+// what it is given reads each piece while it is still in the processor's
+// cache. On error some of the file may have been written.
+func (e *Encoder) WriteTo(out io.Writer, c *feed.Calendar) (int64, error) {
+	cal, _, err := e.build(c)
+	if err != nil {
+		return 0, err
+	}
+	aw := &appendWriter{b: e.piece[:0], out: out}
+	err = cal.SerializeTo(aw, ics.WithNewLineWindows)
+	e.release(cal)
+	if err == nil {
+		aw.flush()
+		err = aw.err
+	}
+	e.piece = aw.b[:0]
+	if err != nil {
+		return aw.n, fmt.Errorf("ical: calendar %q: %w", c.ID, err)
+	}
+	return aw.n, nil
+}
+
+// streamPiece is the size of the pieces WriteTo writes: well within a
+// core's cache, and large enough that a piece costs one call.
+const streamPiece = 32 << 10
+
 // appendWriter is the io.Writer an Encoder serializes into: an append to
 // its buffer. The events recognise it and append their lines directly,
-// without a copy through Write.
-type appendWriter struct{ b []byte }
+// without a copy through Write. With out (see WriteTo) the buffer is
+// written to out and emptied whenever it holds streamPiece bytes or more.
+type appendWriter struct {
+	b   []byte
+	out io.Writer
+	n   int64 // bytes written to out
+	err error // out's first error; nothing is written after it
+}
 
 func (a *appendWriter) Write(p []byte) (int, error) {
 	a.b = append(a.b, p...)
-	return len(p), nil
+	a.pieceDone()
+	return len(p), a.err
+}
+
+// pieceDone writes the buffer to out once it holds a piece.
+func (a *appendWriter) pieceDone() {
+	if a.out != nil && len(a.b) >= streamPiece {
+		a.flush()
+	}
+}
+
+// flush writes the buffer to out (if any) and empties it.
+func (a *appendWriter) flush() {
+	if a.out == nil || len(a.b) == 0 {
+		return
+	}
+	if a.err == nil {
+		n, err := a.out.Write(a.b)
+		a.n += int64(n)
+		a.err = err
+	}
+	a.b = a.b[:0]
 }
 
 // release keeps cal's component array for the next calendar.

@@ -1,6 +1,7 @@
 package serve
 
 import (
+	"bytes"
 	"container/list"
 	"context"
 	"errors"
@@ -85,31 +86,94 @@ func (s *Server) buildAdhoc(ctx context.Context, q AdhocQuery) (a *asset, err er
 		}
 	}()
 	start := time.Now()
-	buf := adhocBuffers.Get().(*[]byte)
-	data, err := s.opts.Adhoc(ctx, q, (*buf)[:0])
-	defer func() {
-		*buf = data[:0] // the asset keeps none of it: newAdhocAsset copies
-		adhocBuffers.Put(buf)
-	}()
+	sink := newAdhocSink(s.opts.AdhocMaxBytes)
+	defer sink.release()
+	err = s.opts.Adhoc(ctx, q, sink)
 	s.metrics.adhocSeconds.Observe(time.Since(start).Seconds())
 	if err != nil {
 		return nil, err
 	}
-	if len(data) > s.opts.AdhocMaxBytes {
-		qe := tooLarge(q, len(data), s.opts.AdhocMaxBytes)
+	if sink.n > s.opts.AdhocMaxBytes {
+		qe := tooLarge(q, sink.n, s.opts.AdhocMaxBytes)
 		s.refused.put(q.String(), &asset{data: []byte(qe.Error())})
 		return nil, qe
 	}
-	a = newAdhocAsset(q.ID()+".ics", data, start.Truncate(time.Second))
+	a = sink.asset(q.ID()+".ics", start.Truncate(time.Second))
 	a.cors = true
 	s.cache.put(q.String(), a)
 	return a, nil
 }
 
-// adhocBuffers hold the encoded ad-hoc feeds while they are compressed and
-// hashed: a one-year feed is about 880 kB, and a server making one feed
-// after another spent much of its time collecting them.
-var adhocBuffers = sync.Pool{New: func() any { return new([]byte) }}
+// adhocHold is how much of an ad-hoc feed adhocSink holds before it
+// starts compressing: a feed this small is served as newAdhocAsset serves
+// any (compressed only when that is worth it).
+const adhocHold = 16 << 10
+
+// adhocSink receives an ad-hoc feed as it is rendered (Options.Adhoc
+// writes it in pieces) and compresses it as it comes, at the level of
+// newAdhocAsset and to the same bytes: the feed itself (about 880 kB for a
+// year of the default kinds) is never held whole, and each piece is
+// compressed while it is still in the processor's cache. It counts the
+// bytes; past limit it only counts them (the feed will be refused).
+type adhocSink struct {
+	limit int
+	n     int           // bytes received
+	head  *[]byte       // the bytes received before compressing started
+	zw    gzipWriter    // nil until the feed is longer than adhocHold
+	gz    *bytes.Buffer // zw's output
+}
+
+var adhocHeads = sync.Pool{New: func() any { b := make([]byte, 0, adhocHold); return &b }}
+
+func newAdhocSink(limit int) *adhocSink {
+	return &adhocSink{limit: limit, head: adhocHeads.Get().(*[]byte)}
+}
+
+// Write never fails.
+func (s *adhocSink) Write(p []byte) (int, error) {
+	s.n += len(p)
+	switch {
+	case s.n > s.limit:
+		// refused: its size is all that is still needed
+	case s.zw != nil:
+		s.zw.Write(p) // into a bytes.Buffer: never fails
+	case s.n <= adhocHold:
+		*s.head = append(*s.head, p...)
+	default:
+		s.zw = gzipFastest.Get().(gzipWriter)
+		s.gz = gzipBuffers.Get().(*bytes.Buffer)
+		s.zw.Reset(s.gz)
+		s.zw.Write(*s.head)
+		s.zw.Write(p)
+		*s.head = (*s.head)[:0]
+	}
+	return len(p), nil
+}
+
+// asset is the feed received, as newAdhocAsset makes it, once the feed is
+// complete and within the limit.
+func (s *adhocSink) asset(name string, mod time.Time) *asset {
+	if s.zw == nil {
+		return newAdhocAsset(name, *s.head, mod)
+	}
+	s.zw.Close()
+	if s.gz.Len() >= s.n*9/10 { // hardly compressible: kept as it is, as newAdhocAsset would
+		return adhocAssetOf(name, gunzip(s.gz.Bytes()), nil, mod)
+	}
+	return adhocAssetOf(name, nil, bytes.Clone(s.gz.Bytes()), mod)
+}
+
+// release gives the sink's buffers and compressor back for the next feed.
+func (s *adhocSink) release() {
+	*s.head = (*s.head)[:0]
+	adhocHeads.Put(s.head)
+	if s.zw != nil {
+		s.gz.Reset()
+		gzipBuffers.Put(s.gz)
+		gzipFastest.Put(s.zw)
+	}
+	*s = adhocSink{}
+}
 
 // adhocCache is a small LRU of built ad-hoc feeds, bounded by entries and
 // bytes, emptied at every refresh.

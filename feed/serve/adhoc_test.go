@@ -1,6 +1,7 @@
 package serve
 
 import (
+	"bytes"
 	"compress/gzip"
 	"context"
 	"crypto/sha256"
@@ -140,13 +141,13 @@ func TestAdhocNormalisedAndCached(t *testing.T) {
 	var calls atomic.Int32
 	var got AdhocQuery
 	var mu sync.Mutex
-	s := adhocServer(t, func(ctx context.Context, q AdhocQuery, _ []byte) ([]byte, error) {
+	s := adhocServer(t, writes(func(ctx context.Context, q AdhocQuery) ([]byte, error) {
 		calls.Add(1)
 		mu.Lock()
 		got = q
 		mu.Unlock()
-		return adhocICS(ctx, q, nil)
-	})
+		return adhocBytes(ctx, q)
+	}))
 	h := s.Handler()
 	first := get(t, h, "GET", "/at.ics?lat=47.50001&lon=13.05&tz=Europe/Vienna&kinds=sunset,sunrise&elev=424.4")
 	if first.StatusCode != 200 {
@@ -232,10 +233,10 @@ func TestAdhocDisabledAndDefaults(t *testing.T) {
 	}
 	var got AdhocQuery
 	s, _ = newTestServer(t, Options{
-		Adhoc: func(ctx context.Context, q AdhocQuery, _ []byte) ([]byte, error) {
+		Adhoc: writes(func(ctx context.Context, q AdhocQuery) ([]byte, error) {
 			got = q
-			return adhocICS(ctx, q, nil)
-		},
+			return adhocBytes(ctx, q)
+		}),
 		AdhocDefaultKinds: []string{"Sunset", "sunrise"},
 		AdhocDefaultDays:  30,
 		AdhocMaxDays:      60,
@@ -253,7 +254,7 @@ func TestAdhocDisabledAndDefaults(t *testing.T) {
 
 func TestAdhocBuilderErrors(t *testing.T) {
 	var mode atomic.Value
-	s := adhocServer(t, func(ctx context.Context, q AdhocQuery, _ []byte) ([]byte, error) {
+	s := adhocServer(t, writes(func(ctx context.Context, q AdhocQuery) ([]byte, error) {
 		switch mode.Load() {
 		case "query":
 			return nil, &QueryError{Param: ParamKinds, Value: "moonrise", Msg: "not available above 80° latitude"}
@@ -262,8 +263,8 @@ func TestAdhocBuilderErrors(t *testing.T) {
 		case "panic":
 			panic("index out of range")
 		}
-		return adhocICS(ctx, q, nil)
-	})
+		return adhocBytes(ctx, q)
+	}))
 	h := s.Handler()
 	for i, tc := range []struct {
 		mode string
@@ -288,12 +289,12 @@ func TestAdhocSharedBuild(t *testing.T) {
 	release := make(chan struct{})
 	entered := make(chan struct{}, 10)
 	var calls atomic.Int32
-	s := adhocServer(t, func(ctx context.Context, q AdhocQuery, _ []byte) ([]byte, error) {
+	s := adhocServer(t, writes(func(ctx context.Context, q AdhocQuery) ([]byte, error) {
 		calls.Add(1)
 		entered <- struct{}{}
 		<-release
-		return adhocICS(ctx, q, nil)
-	})
+		return adhocBytes(ctx, q)
+	}))
 	var wg sync.WaitGroup
 	const n = 5
 	codes := make([]int, n)
@@ -374,7 +375,7 @@ func newDateLoop() *dateLoop {
 	return &dateLoop{tick: make(chan struct{}), started: make(chan struct{}, 8), stopped: make(chan error, 8)}
 }
 
-func (d *dateLoop) build(ctx context.Context, q AdhocQuery, _ []byte) ([]byte, error) {
+func (d *dateLoop) build(ctx context.Context, q AdhocQuery) ([]byte, error) {
 	d.started <- struct{}{}
 	for range q.Days {
 		select {
@@ -386,7 +387,7 @@ func (d *dateLoop) build(ctx context.Context, q AdhocQuery, _ []byte) ([]byte, e
 		}
 	}
 	d.stopped <- nil
-	return adhocICS(ctx, q, nil)
+	return adhocBytes(ctx, q)
 }
 
 // serveAsync runs one request whose context the caller can cancel.
@@ -405,7 +406,7 @@ func serveAsync(h http.Handler, target string) (cancel func(), code <-chan int) 
 // per-date loop stops at the next date instead of computing the other 362.
 func TestAdhocCancelledRequestStopsWork(t *testing.T) {
 	loop := newDateLoop()
-	s, _ := newTestServer(t, Options{Adhoc: loop.build, AdhocTimeout: time.Hour})
+	s, _ := newTestServer(t, Options{Adhoc: writes(loop.build), AdhocTimeout: time.Hour})
 	s.now = func() time.Time { return today }
 	cancel, code := serveAsync(s.Handler(), "/at.ics?lat=10&lon=10&tz=UTC&kinds=sunrise&days=365")
 	<-loop.started
@@ -433,7 +434,7 @@ func TestAdhocCancelledRequestStopsWork(t *testing.T) {
 // stops when both have gone.
 func TestAdhocSharedBuildStopsWithTheLastRequest(t *testing.T) {
 	loop := newDateLoop()
-	s, _ := newTestServer(t, Options{Adhoc: loop.build, AdhocTimeout: time.Hour})
+	s, _ := newTestServer(t, Options{Adhoc: writes(loop.build), AdhocTimeout: time.Hour})
 	s.now = func() time.Time { return today }
 	const target = "/at.ics?lat=10&lon=10&tz=UTC&kinds=sunrise&days=3"
 	waiters := func(lat string) int {
@@ -489,10 +490,10 @@ func TestAdhocSharedBuildStopsWithTheLastRequest(t *testing.T) {
 // again costs no computation. A feed within the limit is served.
 func TestAdhocSizeCap(t *testing.T) {
 	var calls atomic.Int32
-	s, _ := newTestServer(t, Options{AdhocMaxBytes: 20_000, Adhoc: func(ctx context.Context, q AdhocQuery, _ []byte) ([]byte, error) {
+	s, _ := newTestServer(t, Options{AdhocMaxBytes: 20_000, Adhoc: writes(func(ctx context.Context, q AdhocQuery) ([]byte, error) {
 		calls.Add(1)
 		return icsFor(q.ID(), q.Days, "cap"), nil // one event a day, about 200 bytes each
-	}})
+	})})
 	s.now = func() time.Time { return today }
 	h := s.Handler()
 	for i := range 2 {
@@ -589,7 +590,7 @@ func TestAdhocIdentityFromGzip(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	built, _ := adhocICS(t.Context(), q, nil)
+	built, _ := adhocBytes(t.Context(), q)
 	first := get(t, h, "GET", "/at.ics?"+query) // built for this request
 	if got := body(t, first); got != string(built) {
 		t.Fatalf("first identity body: %d bytes, want the %d built", len(got), len(built))
@@ -625,4 +626,46 @@ func skylinePoints(n int) string {
 		items[i] = strconv.FormatFloat(float64(i)*360/float64(n), 'f', 2, 64) + ":3"
 	}
 	return strings.Join(items, ",")
+}
+
+// A feed written in pieces, whatever their sizes, becomes the asset of the
+// whole feed (newAdhocAsset): the same compressed bytes, ETag and, for a
+// feed too small or too random to compress, the same bytes kept.
+func TestAdhocSinkPieces(t *testing.T) {
+	random := make([]byte, 50_000) // gzip would not save a tenth
+	for i := range random {
+		random[i] = byte(i*7919>>3 ^ i*104729>>11)
+	}
+	feeds := [][]byte{icsFor("p", 0, "r"), icsFor("p", 3, "r"), icsFor("p", 100, "r"), icsFor("p", 1000, "r"), random}
+	for _, data := range feeds {
+		want := newAdhocAsset("p.ics", data, testBuilt)
+		for _, piece := range []int{1, 777, adhocHold, adhocHold + 1, 32 << 10, len(data) + 1} {
+			if piece == 1 && len(data) > 20_000 {
+				continue // a byte at a time: slow, and covered by the small feeds
+			}
+			sink := newAdhocSink(len(data))
+			for rest := data; len(rest) > 0; {
+				k := min(piece, len(rest))
+				if n, err := sink.Write(rest[:k]); n != k || err != nil {
+					t.Fatalf("Write: %d, %v", n, err)
+				}
+				rest = rest[k:]
+			}
+			got := sink.asset("p.ics", testBuilt)
+			sink.release()
+			if got.sum != want.sum || !bytes.Equal(got.gz, want.gz) || !bytes.Equal(got.data, want.data) {
+				t.Errorf("%d bytes in pieces of %d: sum %s, %d gzip bytes, %d kept; want %s, %d, %d",
+					len(data), piece, got.sum, len(got.gz), len(got.data), want.sum, len(want.gz), len(want.data))
+			}
+		}
+		if len(data) > 0 { // over the limit: counted whole, for the refusal's message
+			sink := newAdhocSink(len(data) - 1)
+			sink.Write(data[:len(data)/2])
+			sink.Write(data[len(data)/2:])
+			if sink.n != len(data) {
+				t.Errorf("over the limit: %d bytes counted, want %d", sink.n, len(data))
+			}
+			sink.release()
+		}
+	}
 }

@@ -77,6 +77,13 @@ func newAdhocAsset(name string, data []byte, mod time.Time) *asset {
 	if len(data) >= minGzip {
 		gz = gzipFast(data)
 	}
+	return adhocAssetOf(name, data, gz, mod)
+}
+
+// adhocAssetOf is the ad-hoc asset of gz, the compressed form of a feed,
+// or of a copy of data, the feed itself, when gz is nil (see
+// newAdhocAsset).
+func adhocAssetOf(name string, data, gz []byte, mod time.Time) *asset {
 	named, kept := gz, []byte(nil)
 	if gz == nil {
 		named, kept = data, bytes.Clone(data)
@@ -93,18 +100,22 @@ type gunzipReader struct {
 }
 
 func (g *gunzipReader) open() {
-	if g.r != nil {
-		return
+	if g.r == nil {
+		g.r = bytes.NewReader(gunzip(g.gz))
 	}
-	zr, err := kgzip.NewReader(bytes.NewReader(g.gz))
+}
+
+// gunzip is the decompressed form of gz, compressed here.
+func gunzip(gz []byte) []byte {
+	zr, err := kgzip.NewReader(bytes.NewReader(gz))
 	var data []byte
 	if err == nil {
 		data, err = io.ReadAll(zr)
 	}
 	if err != nil { // gz was compressed here: it cannot be corrupt
-		panic(fmt.Sprintf("serve: decompressing a cached feed: %v", err))
+		panic(fmt.Sprintf("serve: decompressing a feed: %v", err))
 	}
-	g.r = bytes.NewReader(data)
+	return data
 }
 
 func (g *gunzipReader) Read(p []byte) (int, error) { g.open(); return g.r.Read(p) }

@@ -239,12 +239,20 @@ func (s *Server) subscribeDays(ctx context.Context, q AdhocQuery) (int, error) {
 		return 0, errAdhocBusy
 	}
 	defer func() { <-s.adhocSem }()
-	data, err := s.opts.Adhoc(ctx, q, nil)
-	if err != nil {
+	var size byteCount
+	if err := s.opts.Adhoc(ctx, q, &size); err != nil {
 		return 0, err
 	}
-	fit := s.opts.AdhocMaxBytes * 9 / 10 * sample / max(len(data), 1)
+	fit := s.opts.AdhocMaxBytes * 9 / 10 * sample / max(int(size), 1)
 	return max(1, min(s.opts.AdhocDefaultDays, fit)), nil
+}
+
+// byteCount is a writer that counts the bytes written to it.
+type byteCount int
+
+func (c *byteCount) Write(p []byte) (int, error) {
+	*c += byteCount(len(p))
+	return len(p), nil
 }
 
 // links are the subscribe links of q (a rolling window from the day of

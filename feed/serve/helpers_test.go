@@ -94,8 +94,22 @@ func (b *builder) build(ctx context.Context) (*publish.Bundle, error) {
 
 // adhocICS is the ad-hoc builder of the tests: a calendar whose name is the
 // normalised query, so a test can see what the server asked for.
-func adhocICS(ctx context.Context, q AdhocQuery, _ []byte) ([]byte, error) {
+var adhocICS = writes(adhocBytes)
+
+// adhocBytes is adhocICS's feed.
+func adhocBytes(ctx context.Context, q AdhocQuery) ([]byte, error) {
 	return icsFor(q.ID(), q.Days/30, q.String()), nil
+}
+
+// writes is the AdhocFunc that writes the feed fn returns, in one piece.
+func writes(fn func(ctx context.Context, q AdhocQuery) ([]byte, error)) AdhocFunc {
+	return func(ctx context.Context, q AdhocQuery, w io.Writer) error {
+		data, err := fn(ctx, q)
+		if err == nil {
+			_, err = w.Write(data)
+		}
+		return err
+	}
 }
 
 func quiet() *slog.Logger { return slog.New(slog.DiscardHandler) }

@@ -54,11 +54,11 @@ func TestGracefulShutdown(t *testing.T) {
 		Build:      func(context.Context) (*publish.Bundle, error) { return testBundle("a"), nil },
 		Logger:     quiet(),
 		Registerer: reg, Gatherer: reg,
-		Adhoc: func(ctx context.Context, q AdhocQuery, _ []byte) ([]byte, error) {
+		Adhoc: writes(func(ctx context.Context, q AdhocQuery) ([]byte, error) {
 			close(entered)
 			<-release
-			return adhocICS(ctx, q, nil)
-		},
+			return adhocBytes(ctx, q)
+		}),
 	})
 	if err != nil {
 		t.Fatal(err)
@@ -100,7 +100,7 @@ func TestGracefulShutdown(t *testing.T) {
 		t.Fatalf("in-flight request: %d %v", res.code, res.err)
 	}
 	q, _ := parseAdhoc("lat=52.1&lon=5.2&tz=Europe/Amsterdam&kinds=sunrise&start=2026-06-01&days=60", time.Now(), s.limits)
-	want, _ := adhocICS(context.Background(), q, nil)
+	want, _ := adhocBytes(context.Background(), q)
 	if res.body != string(want) {
 		t.Error("in-flight request got a partial body")
 	}

@@ -83,10 +83,10 @@ func TestFeedsJSONCarriesURL(t *testing.T) {
 // name, horizon, alarm and lighting reach the builder; tz may be left out.
 func TestAdhocExtras(t *testing.T) {
 	var got AdhocQuery
-	s := adhocServer(t, func(ctx context.Context, q AdhocQuery, _ []byte) ([]byte, error) {
+	s := adhocServer(t, writes(func(ctx context.Context, q AdhocQuery) ([]byte, error) {
 		got = q
-		return adhocICS(ctx, q, nil)
-	})
+		return adhocBytes(ctx, q)
+	}))
 	// No tz: the zone at the coordinates (Linz, Austria).
 	r := get(t, s.Handler(), "GET", "/at.ics?lat=48.3&lon=14.29&kinds=sunrise&name=Fernhollow%20%20Farm&horizon=2.04&alarm=15m&lighting=16h")
 	if r.StatusCode != 200 {

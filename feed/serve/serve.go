@@ -29,6 +29,7 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"io"
 	"log/slog"
 	"net"
 	"net/http"
@@ -49,12 +50,13 @@ import (
 // has returned before.
 type BuildFunc func(ctx context.Context) (*publish.Bundle, error)
 
-// AdhocFunc renders one ad-hoc feed for a validated query: it appends the
-// .ics bytes to dst and returns the extended slice. dst and the result
-// belong to the server (it reuses them for the next feed): the function
-// keeps neither. An error that is (or wraps) a *QueryError is reported to
-// the client as a 400 with its message; any other error is a 500.
-type AdhocFunc func(ctx context.Context, q AdhocQuery, dst []byte) ([]byte, error)
+// AdhocFunc renders one ad-hoc feed for a validated query: it writes the
+// .ics bytes to w, best in pieces as they are rendered (the server
+// compresses each as it comes, and never needs the feed whole); w never
+// fails and must not be kept. An error that is (or wraps) a *QueryError is
+// reported to the client as a 400 with its message; any other error is a
+// 500, and what was written is dropped.
+type AdhocFunc func(ctx context.Context, q AdhocQuery, w io.Writer) error
 
 // Defaults of Options.
 const (

@@ -206,5 +206,6 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 		return fmt.Errorf("%s %s: cannot listen: %w", from, listen, cause)
 	}
 	defer startServeGC(g.getenv)() // fewer collections for the ad-hoc feeds' garbage
+	go srv.WarmAdhoc(ctx)          // the first ad-hoc requests find today's ephemeris ready
 	return srv.Run(ctx, ln)
 }

@@ -669,3 +669,41 @@ func TestAdhocSinkPieces(t *testing.T) {
 		}
 	}
 }
+
+// WarmAdhoc builds the default query's feed at a place in UTC, as a request
+// would, once; the feed is then served from the cache. A builder that
+// fails or panics does not stop the server.
+func TestWarmAdhoc(t *testing.T) {
+	var calls atomic.Int32
+	var got AdhocQuery
+	warmServer := func(fn AdhocFunc) *Server {
+		s, _ := newTestServer(t, Options{Adhoc: fn, AdhocDefaultKinds: []string{"sunrise", "sunset"}})
+		s.now = func() time.Time { return today }
+		return s
+	}
+	s := warmServer(writes(func(ctx context.Context, q AdhocQuery) ([]byte, error) {
+		calls.Add(1)
+		got = q
+		return adhocBytes(ctx, q)
+	}))
+	s.WarmAdhoc(t.Context())
+	if n := calls.Load(); n != 1 {
+		t.Fatalf("%d builds, want 1", n)
+	}
+	if got.Latitude != 0 || got.Longitude != 0 || got.Location.String() != "UTC" || got.Days != DefaultAdhocDefaultDays ||
+		!got.Start.Equal(time.Date(2026, 12, 2, 0, 0, 0, 0, time.UTC)) || strings.Join(got.Kinds, ",") != "sunrise,sunset" {
+		t.Errorf("warm-up query %+v, want the defaults at 0, 0 in UTC from today", got)
+	}
+	if r := get(t, s.Handler(), "GET", "/at.ics?"+warmQuery); r.StatusCode != 200 || calls.Load() != 1 {
+		t.Errorf("the warm-up's feed: status %d after %d builds, want 200 from the cache", r.StatusCode, calls.Load())
+	}
+
+	for _, fn := range []AdhocFunc{
+		func(context.Context, AdhocQuery, io.Writer) error { return errors.New("broken") },
+		func(context.Context, AdhocQuery, io.Writer) error { panic("broken") },
+	} {
+		warmServer(fn).WarmAdhoc(t.Context()) // logs, returns
+	}
+	s, _ = newTestServer(t, Options{}) // no ad-hoc feeds: nothing to do
+	s.WarmAdhoc(t.Context())
+}

@@ -184,7 +184,8 @@ func (tr *track) weights(sec float64) (int, [4]float64) {
 }
 
 func interp(v []float64, k int, w *[4]float64) float64 {
-	return w[0]*v[k-1] + w[1]*v[k] + w[2]*v[k+1] + w[3]*v[k+2]
+	s := v[k-1 : k+3] // one bounds check for the four samples
+	return w[0]*s[0] + w[1]*s[1] + w[2]*s[2] + w[3]*s[3]
 }
 
 // at returns the Greenwich hour angle (rad, not reduced), declination (rad)

@@ -57,6 +57,7 @@ type jsonSink struct {
 	merged   []feed.Event
 	kinds    []jsonKind // the kinds met so far, looked up in order
 	last     int        // index + 1 in kinds of the last event's kind; 0: none yet
+	lastDir  int        // the last event's direction (dirIndex)
 	days     dayCache
 }
 
@@ -81,11 +82,14 @@ func (c *dayCache) appendDay(b []byte, days int64) []byte {
 // formatted once, and how its fields are written.
 type jsonKind struct {
 	kind  config.Kind
-	head  string // `\n    {\n      "kind": "…"`
+	head  string // `\n    {\n      "kind": "…",\n      "start": "`
 	plain bool   // written by event itself (see plainJSONKinds)
 	noon  bool   // altitude_deg
 	rise  bool   // day_length_s and azimuth_deg
-	next  int    // index + 1 in kinds of the kind that followed this one last time; 0: none yet
+	// next[d] is the index + 1 in kinds of the kind that followed this
+	// one in direction d (none, rising, setting) the last time; 0: none
+	// yet
+	next [3]int
 }
 
 // jsonFlush is the size at which the writer hands its buffer on.
@@ -160,7 +164,7 @@ func (j *jsonSink) event(e *feed.Event) {
 		b = append(b, ',')
 	}
 	j.events++
-	k := j.kind(e.Kind)
+	k := j.kind(e.Kind, e.Direction)
 	if !k.plain || e.DirectSun {
 		obj, err := json.MarshalIndent(toJSONEvent(*e), "    ", "  ")
 		if err != nil { // plain strings and finite numbers: cannot fail
@@ -171,21 +175,22 @@ func (j *jsonSink) event(e *feed.Event) {
 		return
 	}
 	b = append(b, k.head...)
-	b = append(b, ",\n      \"start\": \""...)
 	b = j.days.appendUTCMillis(b, e.Start)
-	b = append(b, '"')
 	if !e.End.IsZero() {
-		b = append(b, ",\n      \"end\": \""...)
+		b = append(b, "\",\n      \"end\": \""...)
 		b = j.days.appendUTCMillis(b, e.End)
-		b = append(b, '"')
 	}
-	switch e.Direction { // the plain kinds cross altitudes: rising or setting (feed.DirectionWord)
+	// the start's (or end's) closing quote up to the date's opening one,
+	// in one piece; the plain kinds cross altitudes: rising or setting
+	// (feed.DirectionWord)
+	switch e.Direction {
 	case astro.Rising:
-		b = append(b, ",\n      \"direction\": \"rising\""...)
+		b = append(b, "\",\n      \"direction\": \"rising\",\n      \"date\": \""...)
 	case astro.Setting:
-		b = append(b, ",\n      \"direction\": \"setting\""...)
+		b = append(b, "\",\n      \"direction\": \"setting\",\n      \"date\": \""...)
+	default:
+		b = append(b, "\",\n      \"date\": \""...)
 	}
-	b = append(b, ",\n      \"date\": \""...)
 	b = j.days.appendCivilDate(b, e.Date)
 	b = append(b, '"')
 	if e.Part != "" {
@@ -205,38 +210,61 @@ func (j *jsonSink) event(e *feed.Event) {
 	j.buf = append(b, "\n    }"...)
 }
 
-// kind returns what the writer knows of k, working it out the first time.
+// kind returns what the writer knows of k, the kind of an event crossing
+// in direction dir, working it out the first time.
 //
 // The kinds of a listing follow one another in much the same order every
-// day, so the kind that followed the last one the time before is tried
-// first.
-func (j *jsonSink) kind(k config.Kind) *jsonKind {
+// day, so the kind that followed the last one (in the last one's
+// direction: a threshold crossed rising is followed by another kind than
+// when crossed setting) the time before is tried first.
+func (j *jsonSink) kind(k config.Kind, d astro.Direction) *jsonKind {
+	dir := dirIndex(d)
 	if j.last > 0 {
-		if n := j.kinds[j.last-1].next; n > 0 && j.kinds[n-1].kind == k {
-			j.last = n
+		if n := j.kinds[j.last-1].next[j.lastDir]; n > 0 && sameKind(&j.kinds[n-1].kind, &k) {
+			j.last, j.lastDir = n, dir
 			return &j.kinds[n-1]
 		}
 	}
 	for i := range j.kinds {
-		if j.kinds[i].kind == k {
-			j.follow(i)
+		if sameKind(&j.kinds[i].kind, &k) {
+			j.follow(i, dir)
 			return &j.kinds[i]
 		}
 	}
 	jk := jsonKind{kind: k, plain: plainJSONKinds[k.Name], noon: k.Name == "solar-noon",
 		rise: k.Name == "sunrise" || k.Name == "sunset"}
-	jk.head = string(appendJSONString([]byte("\n    {\n      \"kind\": "), k.String()))
+	jk.head = string(append(appendJSONString([]byte("\n    {\n      \"kind\": "), k.String()), ",\n      \"start\": \""...))
 	j.kinds = append(j.kinds, jk)
-	j.follow(len(j.kinds) - 1)
+	j.follow(len(j.kinds)-1, dir)
 	return &j.kinds[len(j.kinds)-1]
 }
 
-// follow records that the kind at index i follows the last event's kind.
-func (j *jsonSink) follow(i int) {
-	if j.last > 0 {
-		j.kinds[j.last-1].next = i + 1
+// dirIndex numbers a direction for jsonKind.next: 0 none, 1 rising, 2
+// setting.
+func dirIndex(d astro.Direction) int {
+	switch d {
+	case astro.Rising:
+		return 1
+	case astro.Setting:
+		return 2
 	}
-	j.last = i + 1
+	return 0
+}
+
+// sameKind is a == b, written out so that it is inlined and kinds whose
+// names differ in length are told apart at once.
+func sameKind(a, b *config.Kind) bool {
+	return len(a.Name) == len(b.Name) && a.Altitude == b.Altitude && a.High == b.High &&
+		a.DayLength == b.DayLength && a.Name == b.Name
+}
+
+// follow records that the kind at index i, crossing in direction dir
+// (dirIndex), follows the last event's kind.
+func (j *jsonSink) follow(i, dir int) {
+	if j.last > 0 {
+		j.kinds[j.last-1].next[j.lastDir] = i + 1
+	}
+	j.last, j.lastDir = i+1, dir
 }
 
 // plainJSONKinds are the kinds whose JSON event.event writes itself, with

@@ -242,6 +242,7 @@ func NewEphemeris(from, to time.Time) (*Ephemeris, error) {
 	end := start + float64(n-1)*secondsPerDay
 	series := newEarthSeries(epochOf(start).JDE-0.5, epochOf(end).JDE+0.5)
 	tr := allocTrack(start, secondsPerDay, n)
+	tr.sd, tr.cd = make([]float64, n), make([]float64, n) // filled run by run (trigRange)
 	// The samples are taken in runs of whole blocks (daily starts its
 	// rotations afresh at each block, whichever run it is given), one run
 	// per core: the same numbers as in one run.
@@ -265,11 +266,11 @@ func NewEphemeris(from, to time.Time) (*Ephemeris, error) {
 				s := apparentSunNut(e.JDE, Ls[i], Bs[i], Rs[i], dpsi[i], deps[i])
 				return s.ra, s.dec, s.r * earthRadiiPerAU, s.dpsi * math.Cos(s.eps)
 			})
+			tr.trigRange(k0, k1)
 		})
 	}
 	wg.Wait()
 	tr.finish()
-	tr.trig()
 	tr.carry = true
 	return &Ephemeris{coverage: coverage{qa, qb}, sun: tr}, nil
 }

@@ -65,7 +65,7 @@ const auKm = 149597870.7
 type track struct {
 	start, step  float64   // Unix seconds of sample 0, spacing in seconds
 	g, dec, dist []float64 // smooth GHA part (rad, unwrapped), declination (rad), distance (Earth radii)
-	// sd and cd, when set (the Sun's track, see trig), are the sine and
+	// sd and cd, when set (the Sun's track, see trigRange), are the sine and
 	// cosine of dec at the samples, interpolated in place of a sine and
 	// cosine of the interpolated dec
 	sd, cd []float64
@@ -142,7 +142,9 @@ func (tr *track) finish() {
 	}
 }
 
-// trig tabulates the sine and cosine of the declination at the samples,
+// trigRange tabulates the sine and cosine of the declination at the
+// samples k0..k1−1 (into tr.sd and tr.cd, allocated already: the runs of
+// samples filled on several goroutines each tabulate their own),
 // so that sinAltitude interpolates them rather than computing them from the
 // interpolated declination: a third of its cost. Interpolated, sin δ and
 // cos δ are no longer exactly on the unit circle, but the altitude is
@@ -151,10 +153,9 @@ func (tr *track) finish() {
 // those from δ within 4e-10 (0.0001″) over 2020–2040, a tenth of the
 // interpolation's own bound (TestEphemerisInterpolation measures the track
 // against the full series).
-func (tr *track) trig() {
-	tr.sd, tr.cd = make([]float64, len(tr.dec)), make([]float64, len(tr.dec))
-	for k, d := range tr.dec {
-		tr.sd[k], tr.cd[k] = math.Sincos(d)
+func (tr *track) trigRange(k0, k1 int) {
+	for k := k0; k < k1; k++ {
+		tr.sd[k], tr.cd[k] = math.Sincos(tr.dec[k])
 	}
 }
 

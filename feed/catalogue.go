@@ -193,7 +193,8 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 	w := entryWriter{feedID: feedID, site: newSiteInfo(s), noted: map[string]bool{}, last: civil(last)}
 	w.out = releasedEntries.get(days*(len(specs)+1) + room)
 	w.text = textBuffers.get(days * textPerEntry)
-	defer func() { textBuffers.put(w.text) }()
+	w.spans = textSpans.get(days + days/8) // a kind's entries: flushText empties it after each
+	defer func() { textBuffers.put(w.text); textSpans.put(w.spans) }()
 	if err := col.prepare(altitudes(col.p.Observer, specs)...); err != nil {
 		return nil, err
 	}
@@ -265,6 +266,12 @@ var (
 	// scratch once the entries are written (about 140 kB for a year of four
 	// kinds).
 	textBuffers slicePool[byte]
+	// textSpans holds the entry writers' lists of where each entry's
+	// text is (entryWriter.spans), about 15 kB for a year.
+	textSpans slicePool[textSpan]
+	// collectorBuffers holds the working slices of feeds' collectors (see
+	// feedEntries): about 70 kB for a year of four kinds.
+	collectorBuffers = sync.Pool{New: func() any { return new(buffers) }}
 	// scratchEvents holds collectors' event buffers (see feedEntries):
 	// about 0.2 MB for a year of four kinds.
 	scratchEvents slicePool[Event]

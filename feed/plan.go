@@ -67,6 +67,14 @@ func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed,
 	// nothing else sees the collector
 	col.events = scratchEvents.get(0)
 	defer func() { scratchEvents.put(col.events) }()
+	// and so are its working slices (the thresholds' crossings, the
+	// slices by date, the transits): entries copy what they keep
+	buf := collectorBuffers.Get().(*buffers)
+	buf.times.release()
+	buf.durations.release()
+	buf.flags.release()
+	col.xsBuf, col.scratch = &buf.crossings, buf
+	defer collectorBuffers.Put(buf)
 	if len(f.Plans) == 0 {
 		es, err := sky.entries(col, s, f.ID, f.Kinds, 0)
 		if err != nil {

@@ -178,10 +178,11 @@ func TestDurationWords(t *testing.T) {
 
 // What the entries of a kind mean is the same on every date: it is written
 // once in the calendar's description, for each kind of the feed (a kind
-// given twice, with an offset, once), and no entry repeats it. Each entry
-// still says what it is and gives its own numbers: its description starts
-// with its title, and a sunrise or sunset keeps its direction and the day
-// length.
+// given twice, with an offset, once), and no entry repeats it, nor the
+// site (LOCATION and GEO carry it). Each entry still says what it is and
+// gives its own numbers: its description starts with its title or its
+// kind, a sunrise or sunset keeps its direction and the day length, a
+// daily summary the day's times and length.
 func TestMeaningsOncePerCalendar(t *testing.T) {
 	flat := site(t, "flat", 48.2, 16.4, "Europe/Vienna")
 	ridge := site(t, "ridge", 47.05, 11.2, "Europe/Vienna")
@@ -189,7 +190,7 @@ func TestMeaningsOncePerCalendar(t *testing.T) {
 	sk := sky(t, "2027-03-01", "2027-03-03")
 	var specs []config.KindSpec
 	for _, k := range mustKinds(t, "sunrise", "sunset", "civil-dawn", "nautical-dusk", "astronomical-dawn", "golden-hour", "blue-hour",
-		"sun-band:2..12", "sun-band:20..35", "seasons", "solar-noon") {
+		"sun-band:2..12", "sun-band:20..35", "seasons", "solar-noon", "daily-summary") {
 		specs = append(specs, config.KindSpec{Kind: k})
 	}
 	reminder := specs[0]
@@ -209,8 +210,8 @@ func TestMeaningsOncePerCalendar(t *testing.T) {
 			t.Fatal(err)
 		}
 		meanings := kindMeanings(c.s, specs)
-		if len(meanings) != 10 || meanings[0] != c.rise || meanings[len(meanings)-1] != azimuthMeaning {
-			t.Errorf("%s: %d meanings, want 10 (7 kinds, 2 bands, the azimuth), sunrise's first:\n%s", c.s.ID, len(meanings), strings.Join(meanings, "\n"))
+		if len(meanings) != 12 || meanings[0] != c.rise || meanings[len(meanings)-1] != azimuthMeaning {
+			t.Errorf("%s: %d meanings, want 12 (9 kinds, 2 bands, the azimuth), sunrise's first:\n%s", c.s.ID, len(meanings), strings.Join(meanings, "\n"))
 		}
 		for _, m := range meanings {
 			if n := strings.Count(cal.Description, m); n != 1 {
@@ -225,15 +226,22 @@ func TestMeaningsOncePerCalendar(t *testing.T) {
 					t.Errorf("%s: %s entry repeats %q:\n%s", c.s.ID, e.Kind, w, e.Description)
 				}
 			}
-			if len(kindMeanings(c.s, []config.KindSpec{{Kind: mustKinds(t, e.Kind)[0]}})) > 0 && !strings.HasPrefix(e.Description, e.Title) {
-				t.Errorf("%s: %s entry does not start with its title %q:\n%s", c.s.ID, e.Kind, e.Title, e.Description)
+			switch {
+			case e.Kind == "daily-summary":
+				// the day's times, then its length, not the site (LOCATION and GEO)
+				if !strings.HasPrefix(e.Description, "Civil dawn ") || !strings.HasSuffix(e.Description, " from the day before).") || strings.Contains(e.Description, c.s.ID) {
+					t.Errorf("%s: daily summary:\n%s", c.s.ID, e.Description)
+				}
+			case len(kindMeanings(c.s, []config.KindSpec{{Kind: mustKinds(t, e.Kind)[0]}})) > 0 &&
+				!strings.HasPrefix(e.Description, e.Title) && !strings.HasPrefix(e.Description, plainNames[e.Kind]+" at "):
+				t.Errorf("%s: %s entry starts with neither its title %q nor its kind:\n%s", c.s.ID, e.Kind, e.Title, e.Description)
 			}
 			if e.Kind == "sunrise" && e.Title == "Sunrise" && (!strings.HasPrefix(e.Description, c.entry) || !strings.Contains(e.Description, ", azimuth ") ||
 				!strings.Contains(e.Description, "from the day before).")) {
 				t.Errorf("%s: sunrise entry:\n%s", c.s.ID, e.Description)
 			}
 		}
-		for _, k := range []string{"sunrise", "sunset", "civil-dawn", "nautical-dusk", "astronomical-dawn", "golden-hour", "blue-hour", "sun-band:2..12", "sun-band:20..35", "solar-noon"} {
+		for _, k := range []string{"sunrise", "sunset", "civil-dawn", "nautical-dusk", "astronomical-dawn", "golden-hour", "blue-hour", "sun-band:2..12", "sun-band:20..35", "solar-noon", "daily-summary"} {
 			if kinds[k] == 0 {
 				t.Errorf("%s: no %s entry in 3 days", c.s.ID, k)
 			}

@@ -420,11 +420,22 @@ func kindMeanings(s *config.Site, specs []config.KindSpec) []string {
 // azimuthMeaning says how sunrise and sunset entries give their direction.
 const azimuthMeaning = "Azimuths are in degrees from the north through the east (90° east, 180° south)."
 
-// kindMeaning is the meaning of a sunrise, a sunset or a twilight's dawn
-// or dusk at site s, "" for other kinds.
+// kindMeaning is the meaning of a sunrise, a sunset, a twilight's dawn or
+// dusk, a solar noon or a daily summary at site s, "" for other kinds.
 func kindMeaning(s *config.Site, kind string) string {
 	if m, ok := twilightMeaning[kind]; ok {
 		return m
+	}
+	switch kind {
+	case "solar-noon":
+		return "Solar noon: the Sun crosses the meridian, its highest of the day."
+	case "daily-summary":
+		if len(s.Skyline) > 0 {
+			return "Direct Sun: the day's civil dawn, sunrise and sunset over the site's skyline (the Sun's first " +
+				"appearance and last disappearance) and civil dusk, to the minute, and how long the Sun is over the skyline."
+		}
+		return "Daylight: the day's civil dawn, sunrise, sunset and civil dusk, to the minute, and the day length, " +
+			"from sunrise to the sunset that ends the day."
 	}
 	verb := map[string]string{"sunrise": "appears on the horizon", "sunset": "disappears below the horizon"}[kind]
 	if verb == "" {
@@ -520,11 +531,12 @@ func describe(s *siteInfo, e Event) (string, string) {
 			at, astro.CompassPoint(e.Azimuth), e.Azimuth, localClock(e.End, loc), s.where)
 	case "solar-noon":
 		title = "Solar noon, Sun " + height(e.Altitude, "high")
-		fmt.Fprintf(&b, "Solar noon at %s, %s: the Sun crosses the meridian at %s altitude", at, s.where, degrees(e.Altitude))
+		// what solar noon is, in the calendar's description (kindMeaning)
+		fmt.Fprintf(&b, "Solar noon at %s, the Sun at %s altitude", at, degrees(e.Altitude))
 		if e.Altitude < 0 {
 			b.WriteString(", its centre below the horizon.")
 		} else {
-			b.WriteString(", its highest of the day.\n" + cautionEyes)
+			b.WriteString(".\n" + cautionEyes)
 		}
 	case "sun-altitude":
 		verb := DirectionWord(e) + " through"
@@ -937,7 +949,7 @@ func describeSummary(s *siteInfo, d time.Time, length, delta time.Duration, evs 
 	lengthName := "Day length"
 	if len(s.Skyline) > 0 {
 		title = fmt.Sprintf("Direct Sun %s", hm(length))
-		lengthName = "Direct Sun over the skyline (sunrise and sunset are its first appearance and last disappearance)"
+		lengthName = "Direct Sun over the skyline" // what it is: in the calendar's description (kindMeaning)
 	}
 	var said []string // dawn and dusk may give one note twice
 	for _, n := range notes {
@@ -961,6 +973,6 @@ func describeSummary(s *siteInfo, d time.Time, length, delta time.Duration, evs 
 		}
 		b.WriteByte('\n')
 	}
-	fmt.Fprintf(&b, "%s %s (%s from the day before), %s.", lengthName, hm(length), Change(delta), s.where)
+	fmt.Fprintf(&b, "%s %s (%s from the day before).", lengthName, hm(length), Change(delta))
 	return title, b.String()
 }

@@ -170,13 +170,42 @@ func (c *collector) lighting(k config.Kind) error {
 			continue
 		}
 		short := k.DayLength - dl.length
-		period := func(part string, start, end time.Time) Event {
-			e := Event{Kind: k, Start: start, End: end, Date: d, Part: part, DayLength: dl.length, DirectSun: alt == skylineKey}
-			c.clip(&e, lim)
-			if !e.End.After(e.Start) {
-				e.End = e.Start
+		direct := alt == skylineKey
+		if dl.length > 0 && lamps != config.LampsBoth {
+			// one period, from sunset or to sunrise: written in place
+			c.events = append(c.events, Event{})
+			e := &c.events[len(c.events)-1]
+			if lamps == config.LampsMorning {
+				from := dl.first.Add(-short)
+				if !dl.dawnFrom.IsZero() && from.Before(dl.dawnFrom) {
+					from = dl.dawnFrom
+				}
+				c.lampPeriod(e, k, d, partMorning, from, dl.first, dl.length, direct, &lim)
+			} else {
+				to := dl.last.Add(short)
+				if !dl.duskTo.IsZero() && to.After(dl.duskTo) {
+					to = dl.duskTo
+				}
+				c.lampPeriod(e, k, d, partEvening, dl.last, to, dl.length, direct, &lim)
 			}
-			e.Lamp = e.End.Sub(e.Start)
+			got, dropped := e.Lamp, time.Duration(0)
+			switch {
+			case got <= 0:
+				got = 0
+				c.events = c.events[:len(c.events)-1]
+			case got < minLen:
+				got, dropped = 0, e.Lamp
+				c.events = c.events[:len(c.events)-1]
+			case got < short:
+				e.Short = true
+			}
+			if got == 0 {
+				c.unscheduled(k, d, dl.length, short, dropped, minLen, &lim)
+			}
+			continue
+		}
+		period := func(part string, start, end time.Time) (e Event) {
+			c.lampPeriod(&e, k, d, part, start, end, dl.length, direct, &lim)
 			return e
 		}
 		// never while the Sun is up: a morning period starts no earlier
@@ -230,23 +259,20 @@ func (c *collector) lighting(k config.Kind) error {
 				p.MadeUp, p.MadeUpWhy = p.Lamp-ps[0].Lamp, "clipped"
 				ps[0] = p
 			}
-		case lamps == config.LampsMorning:
-			ps[0] = morning(short)
-		case lamps == config.LampsBoth:
-			ps[0], ps[1] = c.bothPeriods(short, minLen, morning, evening)
 		default:
-			ps[0] = evening(short)
+			ps[0], ps[1] = c.bothPeriods(short, minLen, morning, evening)
 		}
 		var got, dropped time.Duration
 		n0 := len(c.events)
-		for _, e := range ps {
+		for i := range ps {
+			e := &ps[i]
 			switch {
 			case e.Lamp <= 0:
 			case e.Lamp < minLen:
 				dropped += e.Lamp
 			default:
 				got += e.Lamp
-				c.events = append(c.events, e)
+				c.events = append(c.events, *e)
 			}
 		}
 		if got < short {
@@ -255,19 +281,36 @@ func (c *collector) lighting(k config.Kind) error {
 			}
 		}
 		if got == 0 {
-			// lamps are needed but none are scheduled: say so, and why
-			why := "under the " + amount(minLen) + " minimum"
-			switch {
-			case dropped == 0 && lim.text == "":
-				why = "the Sun is up again before they could come on"
-			case dropped == 0:
-				why = "the lamp limits leave no time (" + lim.text + ")"
-			}
-			c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.AlwaysBelow, Family: k.String(),
-				DayLength: dl.length, Lamp: short, Why: why})
+			c.unscheduled(k, d, dl.length, short, dropped, minLen, &lim)
 		}
 	}
 	return nil
+}
+
+// lampPeriod sets e to the lamp period of kind k on the local date d from
+// start to end, clipped to the limits lim; its Lamp is its length.
+func (c *collector) lampPeriod(e *Event, k config.Kind, d time.Time, part string, start, end time.Time, length time.Duration, direct bool, lim *lampLimits) {
+	e.Kind, e.Start, e.End, e.Date, e.Part, e.DayLength, e.DirectSun = k, start, end, d, part, length, direct
+	c.clip(e, lim)
+	if !e.End.After(e.Start) {
+		e.End = e.Start
+	}
+	e.Lamp = e.End.Sub(e.Start)
+}
+
+// unscheduled notes a date that needs short of lamps none of which are
+// scheduled, and why: dropped is the lamp time left out for being under
+// the minimum minLen.
+func (c *collector) unscheduled(k config.Kind, d time.Time, length, short, dropped, minLen time.Duration, lim *lampLimits) {
+	why := "under the " + amount(minLen) + " minimum"
+	switch {
+	case dropped == 0 && lim.text == "":
+		why = "the Sun is up again before they could come on"
+	case dropped == 0:
+		why = "the lamp limits leave no time (" + lim.text + ")"
+	}
+	c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.AlwaysBelow, Family: k.String(),
+		DayLength: length, Lamp: short, Why: why})
 }
 
 // bothPeriods places the lamp time short of a date as two periods, half
@@ -333,7 +376,7 @@ func limitsOf(spec config.KindSpec) lampLimits {
 // clip shortens a lamp period to the limits: the last earliest_on clock
 // time at or before the period's end, and the first latest_off clock time
 // after its start, and marks a period it cuts Clipped.
-func (c *collector) clip(e *Event, lim lampLimits) {
+func (c *collector) clip(e *Event, lim *lampLimits) {
 	z := c.zone()
 	if lim.hasOn && e.Part != partEvening {
 		day := z.day(e.End)

@@ -253,6 +253,42 @@ type result struct {
 	serverCPU time.Duration // CPU time the started server used during the run (0: unknown)
 	serverRSS int64         // the started server's peak resident memory so far, bytes (0: unknown)
 	clientCPU time.Duration // CPU time loadtest itself used
+	start     time.Time     // when the run started
+	samples   []sample      // every request, for the slowest
+}
+
+// sample is one request: its number in the run, when it was sent and how
+// long its response took.
+type sample struct {
+	i    int
+	sent time.Time
+	took time.Duration
+}
+
+// slowest is how many of the slowest requests a run lists.
+const slowest = 5
+
+// slowestText lists the slowest requests of r, the slowest first, with
+// when each was sent (from the start of the run): a slow start (a server
+// still preparing) and slow moments later in the run tell apart.
+func (r *result) slowestText() string {
+	s := slices.Clone(r.samples)
+	slices.SortStableFunc(s, func(a, b sample) int { return cmpDuration(b.took, a.took) })
+	var parts []string
+	for _, x := range s[:min(slowest, len(s))] {
+		parts = append(parts, fmt.Sprintf("#%d at %v: %v", x.i, x.sent.Sub(r.start).Round(time.Millisecond), x.took.Round(time.Microsecond)))
+	}
+	return strings.Join(parts, ", ")
+}
+
+func cmpDuration(a, b time.Duration) int {
+	switch {
+	case a < b:
+		return -1
+	case a > b:
+		return 1
+	}
+	return 0
 }
 
 func (r *result) print() {
@@ -269,6 +305,9 @@ func (r *result) print() {
 	fmt.Printf("  throughput  %.0f req/s, %.1f MB/s\n", float64(n)/r.elapsed.Seconds(), float64(r.bytes)/r.elapsed.Seconds()/1e6)
 	fmt.Printf("  latency     p50 %v  p90 %v  p99 %v  max %v\n",
 		pct(r.latencies, 50), pct(r.latencies, 90), pct(r.latencies, 99), r.latencies[n-1].Round(time.Microsecond))
+	if len(r.samples) > 0 {
+		fmt.Printf("  slowest     %s\n", r.slowestText())
+	}
 	var codes []string
 	for _, c := range slices.Sorted(mapKeys(r.statuses)) {
 		codes = append(codes, fmt.Sprintf("%d×%d", c, r.statuses[c]))
@@ -311,6 +350,7 @@ func pct(sorted []time.Duration, p int) time.Duration {
 // tally is what one connection of a run counted.
 type tally struct {
 	lat      []time.Duration
+	samples  []sample
 	statuses map[int]int
 	errors   int
 	firstErr error
@@ -333,7 +373,7 @@ func measure(name string, conns, n int, worker func(l *tally)) *result {
 		wg.Go(func() { worker(l) })
 	}
 	wg.Wait()
-	r := &result{name: name, conns: conns, elapsed: time.Since(start), statuses: map[int]int{}}
+	r := &result{name: name, conns: conns, elapsed: time.Since(start), statuses: map[int]int{}, start: start}
 	if cpu1, ok := processCPU(serverPID); ok && cpuOK {
 		r.serverCPU = cpu1 - cpu0
 	}
@@ -341,6 +381,7 @@ func measure(name string, conns, n int, worker func(l *tally)) *result {
 	r.serverRSS = processPeakRSS(serverPID)
 	for _, l := range locals {
 		r.latencies = append(r.latencies, l.lat...)
+		r.samples = append(r.samples, l.samples...)
 		for k, v := range l.statuses {
 			r.statuses[k] += v
 		}
@@ -450,7 +491,9 @@ func rawLoad(ctx context.Context, name string, u *url.URL, conns, n int, d time.
 				fail(err)
 				continue
 			}
-			l.lat = append(l.lat, time.Since(t0))
+			took := time.Since(t0)
+			l.lat = append(l.lat, took)
+			l.samples = append(l.samples, sample{i, t0, took})
 			l.statuses[resp.StatusCode]++
 			l.bytes += nb
 			if resp.Close {

@@ -117,6 +117,35 @@ func TestRawLoadReadsWholeResponses(t *testing.T) {
 	}
 }
 
+// The slowest requests are listed slowest first, each with its number and
+// when it was sent; every request of a run is a sample.
+func TestSlowest(t *testing.T) {
+	t0 := time.Date(2026, 12, 3, 12, 0, 0, 0, time.UTC)
+	r := &result{start: t0}
+	for i, ms := range []int{5, 40, 7, 300, 6, 9, 41, 8} {
+		r.samples = append(r.samples, sample{i, t0.Add(time.Duration(i*10) * time.Millisecond), time.Duration(ms) * time.Millisecond})
+	}
+	want := "#3 at 30ms: 300ms, #6 at 60ms: 41ms, #1 at 10ms: 40ms, #5 at 50ms: 9ms, #7 at 70ms: 8ms"
+	if got := r.slowestText(); got != want {
+		t.Errorf("slowest:\n got %s\nwant %s", got, want)
+	}
+
+	srv := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {}))
+	defer srv.Close()
+	u, _ := url.Parse(srv.URL + "/at.ics?lon=1")
+	run := rawLoad(context.Background(), "test", u, 2, 20, 30*time.Second, adhocRequest(u, 10, true))
+	seen := map[int]bool{}
+	for _, x := range run.samples {
+		seen[x.i] = true
+		if x.sent.Before(run.start) || x.took <= 0 {
+			t.Errorf("request %d sent %v before the run's start %v, or took %v", x.i, x.sent, run.start, x.took)
+		}
+	}
+	if len(seen) != 20 || len(run.samples) != 20 {
+		t.Errorf("%d samples of %d requests, want 20 of 20", len(run.samples), len(seen))
+	}
+}
+
 func TestProcessPeakRSS(t *testing.T) {
 	big := make([]byte, 32<<20)
 	for i := range big {

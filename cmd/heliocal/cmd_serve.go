@@ -206,6 +206,9 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 		return fmt.Errorf("%s %s: cannot listen: %w", from, listen, cause)
 	}
 	defer startServeGC(g.getenv)() // fewer collections for the ad-hoc feeds' garbage
-	go srv.WarmAdhoc(ctx)          // the first ad-hoc requests find today's ephemeris ready
+	// The first ad-hoc requests find today's ephemeris ready. Before the
+	// feeds' first build, which would slow it down (it takes every core):
+	// about 15 ms of CPU.
+	srv.WarmAdhoc(ctx)
 	return srv.Run(ctx, ln)
 }

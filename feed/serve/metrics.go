@@ -95,7 +95,7 @@ func newMetrics(reg prometheus.Registerer) (*metrics, error) {
 		}, []string{"result"}),
 		adhocSeconds: prometheus.NewHistogram(prometheus.HistogramOpts{
 			Name:    "heliocal_adhoc_build_duration_seconds",
-			Help:    "Time to build one ad-hoc feed.",
+			Help:    "Time to build (and compress) one ad-hoc feed.",
 			Buckets: []float64{.001, .0025, .005, .01, .025, .05, .1, .25, .5, 1, 2.5},
 		}),
 		reloadsRefused: prometheus.NewCounter(prometheus.CounterOpts{

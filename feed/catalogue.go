@@ -4,7 +4,6 @@ import (
 	"cmp"
 	"context"
 	"crypto/sha256"
-	"encoding/hex"
 	"fmt"
 	"slices"
 	"sort"
@@ -692,7 +691,14 @@ func (w *entryWriter) appendUID(dst, key []byte) []byte {
 // of its SHA-256 in hex, and "@heliocal".
 func appendHash(dst, key []byte) []byte {
 	sum := sha256.Sum256(key)
-	return append(hex.AppendEncode(dst, sum[:12]), "@heliocal"...)
+	// hex.AppendEncode's digits, written into one array and appended once
+	const digits = "0123456789abcdef"
+	var uid [uidLen]byte
+	for i, b := range sum[:12] {
+		uid[2*i], uid[2*i+1] = digits[b>>4], digits[b&15]
+	}
+	copy(uid[24:], "@heliocal")
+	return append(dst, uid[:]...)
 }
 
 // keep returns key as a string over a copy of it in w.keys, instead of

@@ -175,12 +175,13 @@ func (s *earthSeries) at(jde float64) (L, B, R float64) {
 // the next by a rotation (two multiplications instead of a cosine), started
 // afresh every sunChebDays samples. A sample's offset from the exact
 // one-day grid (TT − UTC changes: ΔT, leap seconds; under a second over a
-// block) is corrected to first order; the error is below 1e-15 rad.
-func (s *earthSeries) daily(jdes []float64) (L, B, R []float64) {
+// block) is corrected to first order; the error is below 1e-15 rad. The
+// results and the working memory are buf's, overwritten by the next call.
+func (s *earthSeries) daily(jdes []float64, buf *sampleBuffers) (L, B, R []float64) {
 	n := len(jdes)
-	out := [3][]float64{make([]float64, n), make([]float64, n), make([]float64, n)}
+	out := [3][]float64{floats(&buf.L, n), floats(&buf.B, n), floats(&buf.R, n)}
 	const h = 1 / julianMillennium // a day in millennia
-	tau := make([]float64, n)
+	tau := floats(&buf.tau, n)
 	for k, j := range jdes {
 		tau[k] = (j - J2000) / julianMillennium
 		out[0][k], out[1][k], out[2][k] = s.slowAt(j)
@@ -188,7 +189,7 @@ func (s *earthSeries) daily(jdes []float64) (L, B, R []float64) {
 	// off[k] is sample k's offset from the one-day grid of its run (days
 	// in millennia), each term's rotation being restarted at every
 	// sunChebDays-th sample.
-	off := make([]float64, n)
+	off := floats(&buf.off, n)
 	var t0 float64
 	for k := range n {
 		if k%sunChebDays == 0 {
@@ -199,15 +200,14 @@ func (s *earthSeries) daily(jdes []float64) (L, B, R []float64) {
 	// per run of sunChebDays samples and power of τ, every term's cosine
 	// and sine rotated together from sample to sample: the terms' rotations
 	// are independent of one another
-	var C, S, cr, sr []float64
-	tp := make([]float64, n) // τᵖ
+	tp := floats(&buf.tp, n) // τᵖ
 	for v := range 3 {
 		for k := range n {
 			tp[k] = 1
 		}
 		for _, terms := range fastTerms[v] {
 			m := len(terms)
-			C, S, cr, sr = slices.Grow(C[:0], m)[:m], slices.Grow(S[:0], m)[:m], slices.Grow(cr[:0], m)[:m], slices.Grow(sr[:0], m)[:m]
+			C, S, cr, sr := floats(&buf.c, m), floats(&buf.s, m), floats(&buf.cr, m), floats(&buf.sr, m)
 			for i, t := range terms {
 				sr[i], cr[i] = math.Sincos(t.c * h)
 			}
@@ -242,6 +242,21 @@ func (s *earthSeries) daily(jdes []float64) (L, B, R []float64) {
 // fastPeriod splits the series: terms of shorter period (days) are summed
 // at every sample, the others are fitted.
 const fastPeriod = 60
+
+// sampleBuffers is the working memory of daily and nutationDaily and
+// their results, kept by a caller taking the Sun's samples block after
+// block.
+type sampleBuffers struct {
+	L, B, R, tau, off, tp, c, s, cr, sr []float64 // daily
+	dpsi, deps, t                       []float64 // nutationDaily
+}
+
+// floats returns *b with length n, growing it if needed; its values are
+// left as they were.
+func floats(b *[]float64, n int) []float64 {
+	*b = slices.Grow((*b)[:0], n)[:n]
+	return *b
+}
 
 // slowTerms and fastTerms are the VSOP87D series of L, B and R split at
 // fastPeriod: the fast ones are the Moon's pull on the Earth and its

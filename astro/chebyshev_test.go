@@ -44,8 +44,9 @@ func TestSunChebyshev(t *testing.T) {
 			jdes[k] = epochOf(sec + float64(k)*secondsPerDay).JDE
 		}
 		s := newEarthSeries(jdes[0]-0.5, jdes[len(jdes)-1]+0.5)
-		Ls, Bs, Rs := s.daily(jdes)
-		dpsi, deps := nutationDaily(jdes)
+		var buf sampleBuffers
+		Ls, Bs, Rs := s.daily(jdes, &buf)
+		dpsi, deps := nutationDaily(jdes, &buf)
 		for k, jde := range jdes {
 			check(jde, Ls[k], Bs[k], Rs[k], dpsi[k], deps[k])
 		}

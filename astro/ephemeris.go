@@ -245,7 +245,8 @@ func NewEphemeris(from, to time.Time) (*Ephemeris, error) {
 	tr.sd, tr.cd = make([]float64, n), make([]float64, n) // filled run by run (trigRange)
 	// The samples are taken in runs of whole blocks (daily starts its
 	// rotations afresh at each block, whichever run it is given), one run
-	// per core: the same numbers as in one run.
+	// per core, block by block (a block's working memory reused for the
+	// next): the same numbers as in one run.
 	runs := min(runtime.GOMAXPROCS(0), (n+sunChebDays-1)/sunChebDays)
 	per := (n + runs - 1) / runs
 	per = (per + sunChebDays - 1) / sunChebDays * sunChebDays
@@ -253,19 +254,24 @@ func NewEphemeris(from, to time.Time) (*Ephemeris, error) {
 	for k0 := 0; k0 < n; k0 += per {
 		k1 := min(k0+per, n)
 		wg.Go(func() {
-			es := make([]Epoch, k1-k0)
-			jdes := make([]float64, k1-k0)
-			for k := range es {
-				es[k] = epochOf(start + float64(k0+k)*secondsPerDay)
-				jdes[k] = es[k].JDE
+			var buf sampleBuffers
+			es := make([]Epoch, 0, sunChebDays)
+			jdes := make([]float64, 0, sunChebDays)
+			for b0 := k0; b0 < k1; b0 += sunChebDays {
+				b1 := min(b0+sunChebDays, k1)
+				es, jdes = es[:0], jdes[:0]
+				for k := b0; k < b1; k++ {
+					e := epochOf(start + float64(k)*secondsPerDay)
+					es, jdes = append(es, e), append(jdes, e.JDE)
+				}
+				Ls, Bs, Rs := series.daily(jdes, &buf)
+				dpsi, deps := nutationDaily(jdes, &buf)
+				tr.fill(b0, es, func(k int, e Epoch) (ra, dec, dist, eqEq float64) {
+					i := k - b0
+					s := apparentSunNut(e.JDE, Ls[i], Bs[i], Rs[i], dpsi[i], deps[i])
+					return s.ra, s.dec, s.r * earthRadiiPerAU, s.dpsi * math.Cos(s.eps)
+				})
 			}
-			Ls, Bs, Rs := series.daily(jdes)
-			dpsi, deps := nutationDaily(jdes)
-			tr.fill(k0, es, func(k int, e Epoch) (ra, dec, dist, eqEq float64) {
-				i := k - k0
-				s := apparentSunNut(e.JDE, Ls[i], Bs[i], Rs[i], dpsi[i], deps[i])
-				return s.ra, s.dec, s.r * earthRadiiPerAU, s.dpsi * math.Cos(s.eps)
-			})
 			tr.trigRange(k0, k1)
 		})
 	}

@@ -146,11 +146,12 @@ func reduceDeg(x float64) float64 { return x - 360*math.Floor(x/360) }
 // arguments' quadratic parts, and the samples' offsets from an exact
 // one-day grid in TT (ΔT drifts by under a second in a run), move a term by
 // less than 1e-5 rad: Δψ and Δε stay within 2e-6″ of nutationRad's
-// (TestSunChebyshev).
-func nutationDaily(jdes []float64) (dpsi, deps []float64) {
+// (TestSunChebyshev). The results and the working memory are buf's,
+// overwritten by the next call.
+func nutationDaily(jdes []float64, buf *sampleBuffers) (dpsi, deps []float64) {
 	n := len(jdes)
-	dpsi, deps = make([]float64, n), make([]float64, n)
-	T := make([]float64, n)
+	dpsi, deps = floats(&buf.dpsi, n), floats(&buf.deps, n)
+	T := floats(&buf.t, n)
 	for k, j := range jdes {
 		T[k] = (j - J2000) / julianCentury
 	}

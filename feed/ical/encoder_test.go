@@ -2,6 +2,7 @@ package ical
 
 import (
 	"bytes"
+	"errors"
 	"fmt"
 	"math/rand"
 	"testing"
@@ -39,6 +40,60 @@ func TestEncoderReuse(t *testing.T) {
 		}
 		buf = got
 	}
+}
+
+// TestEncoderWriteTo: one Encoder writing calendars one after another to
+// writers writes each with the bytes Marshal writes for it alone, in
+// pieces of at most streamPiece bytes and an event or a line more, and
+// counts them; a failing writer stops the file with its error.
+func TestEncoderWriteTo(t *testing.T) {
+	r := rand.New(rand.NewSource(11))
+	cals := []*feed.Calendar{siteYear(t, "Europe/Vienna"), siteYear(t, "UTC"), siteYear(t, "Australia/Lord_Howe")}
+	for range 20 {
+		cals = append(cals, randomCalendar(t, r))
+	}
+	enc := NewEncoder(Options{Version: "test"})
+	for i, c := range cals {
+		want, werr := Marshal(c, Options{Version: "test"})
+		w := &pieces{}
+		n, err := enc.WriteTo(w, c)
+		if (err != nil) != (werr != nil) {
+			t.Fatalf("calendar %d: error %v, Marshal's %v", i, err, werr)
+		}
+		if err != nil {
+			continue
+		}
+		if got := bytes.Join(w.p, nil); !bytes.Equal(got, want) || n != int64(len(want)) {
+			t.Fatalf("calendar %d: WriteTo wrote %d bytes (said %d) differing from Marshal's %d", i, len(got), n, len(want))
+		}
+		for _, p := range w.p {
+			if len(p) > streamPiece+4096 {
+				t.Errorf("calendar %d: a piece of %d bytes, over %d and an event", i, len(p), streamPiece)
+			}
+		}
+		if len(want) > 3*streamPiece && len(w.p) < 3 {
+			t.Errorf("calendar %d: %d bytes written in %d pieces", i, len(want), len(w.p))
+		}
+	}
+	broken := errors.New("disk full")
+	if _, err := enc.WriteTo(&pieces{fail: broken}, cals[0]); !errors.Is(err, broken) {
+		t.Errorf("failing writer: error %v, want %v", err, broken)
+	}
+}
+
+// pieces is a writer that keeps a copy of each piece written to it, or
+// fails with fail.
+type pieces struct {
+	p    [][]byte
+	fail error
+}
+
+func (w *pieces) Write(b []byte) (int, error) {
+	if w.fail != nil {
+		return 0, w.fail
+	}
+	w.p = append(w.p, bytes.Clone(b))
+	return len(b), nil
 }
 
 // BenchmarkEncoderAppend is BenchmarkMarshal with one Encoder and one

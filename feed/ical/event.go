@@ -331,6 +331,11 @@ func escapeCleanText(b []byte, s string) ([]byte, bool) {
 			i++
 		case c < utf8.RuneSelf: // another control character
 			return b, false
+		case c >= 0xc2 && c <= 0xdf && i+1 < len(s) && s[i+1]&0xc0 == 0x80 && (c > 0xc2 || s[i+1] >= 0xa0):
+			// A two-octet sequence ("°", "é") that is not a C1 control
+			// (U+0080-U+009F): what the general case below accepts,
+			// without decoding.
+			i += 2
 		default:
 			r, size := utf8.DecodeRuneInString(s[i:])
 			if (r == utf8.RuneError && size == 1) || unicode.IsControl(r) {
@@ -490,8 +495,10 @@ func escapeMask(x uint64) uint64 {
 // found as a control character): its lowest set bit is in the first octet
 // of x that escapeText escapes or cleanText looks at octet by octet.
 func escapeCleanMask(x uint64) uint64 {
-	a, b, c, d := x^(ones*'\\'), x^(ones*';'), x^(ones*','), x^(ones*0x7f)
-	return (x | (x-ones*' ')&^x | (a-ones)&^a | (b-ones)&^b | (c-ones)&^c | (d-ones)&^d) & highs
+	// x+ones carries into the top bit of an octet 0x7f, and out of an
+	// octet 0xff only, which x's own top bit already flags.
+	a, b, c := x^(ones*'\\'), x^(ones*';'), x^(ones*',')
+	return (x | (x + ones) | (x-ones*' ')&^x | (a-ones)&^a | (b-ones)&^b | (c-ones)&^c) & highs
 }
 
 // cleanMask is escapeMask for cleanText's octet-wise path: its lowest set

@@ -208,7 +208,7 @@ func TestWordTests(t *testing.T) {
 // paths) give what the full normalisation and the library's escaping give.
 func TestCleanTextLong(t *testing.T) {
 	pieces := []string{"Sunrise at the upper terrace ", "a", ",", ";", "\\", "\t", "\n", "\r", "\r\n", "\x00",
-		"\x1f", "\x7f", "é", "\u0085", "日", "🌅", "\xff", strings.Repeat("x", 13)}
+		"\x1f", "\x7f", "é", "°", "\u00a0", "\xc2", "\xc1\xbf", "\u0085", "日", "🌅", "\xff", strings.Repeat("x", 13)}
 	r := rand.New(rand.NewSource(7))
 	for range 20000 {
 		var s string

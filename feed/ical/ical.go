@@ -264,6 +264,11 @@ type writer struct {
 	// list, which is then found without building its key.
 	catRecent []catMemo
 
+	// titles are the last few titles cleaned, by their array and length
+	// (see cleanTitle).
+	titles    [8]cleanMemo
+	nextTitle int
+
 	span offsetSpan // the last offset period looked up (see offsetAt)
 	day  dayDigits  // the last date written (see appendSeconds)
 
@@ -630,7 +635,7 @@ func (w *writer) event(i int, e *feed.Entry) (*vevent, error) {
 		}
 		ev.start, ev.end = start, end
 	}
-	ev.title = cleanText(e.Title)
+	ev.title = w.cleanTitle(e.Title)
 	// The description, the longest text, is cleaned as it is escaped (see
 	// cleanTextLine): one pass over it instead of two.
 	ev.desc = e.Description
@@ -641,6 +646,29 @@ func (w *writer) event(i int, e *feed.Entry) (*vevent, error) {
 		ev.trigger = "-" + formatDuration(alarm)
 	}
 	return ev, nil
+}
+
+// cleanTitle returns cleanText(title), from w.titles when title is one of
+// the last few strings cleaned: the entries of a kind share their title's
+// string ("Sunrise"), which is then not looked at again.
+func (w *writer) cleanTitle(title string) string {
+	data := unsafe.StringData(title)
+	for i := range w.titles {
+		if m := &w.titles[i]; m.data == data && m.n == len(title) && data != nil {
+			return m.clean
+		}
+	}
+	clean := cleanText(title)
+	w.titles[w.nextTitle%len(w.titles)] = cleanMemo{data, len(title), clean}
+	w.nextTitle++
+	return clean
+}
+
+// cleanMemo is a string known by its array and length, and its cleanText.
+type cleanMemo struct {
+	data  *byte
+	n     int
+	clean string
 }
 
 // entryAlarm is the reminder time of an entry: its own when it has one,

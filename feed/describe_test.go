@@ -251,3 +251,31 @@ func TestMeaningsOncePerCalendar(t *testing.T) {
 		}
 	}
 }
+
+// A calendar with solar eclipses carries in its description the eye
+// protection an eclipse needs (ISO 12312-2 filters, common practice, as
+// the README's caution says it), not only "Never look directly at the
+// Sun."; a calendar without them does not.
+func TestEclipseCautionInCalendarDescription(t *testing.T) {
+	s := site(t, "flat", 48.2, 16.4, "Europe/Vienna")
+	for _, c := range []struct {
+		kinds []string
+		want  bool
+	}{
+		{[]string{"solar-eclipse"}, true},
+		{[]string{"sunrise", "solar-eclipse", "lunar-eclipse"}, true},
+		{[]string{"lunar-eclipse"}, false},
+		{[]string{"sunrise", "golden-hour"}, false},
+	} {
+		var specs []config.KindSpec
+		for _, k := range mustKinds(t, c.kinds...) {
+			specs = append(specs, config.KindSpec{Kind: k})
+		}
+		d := CalendarDescription(s, &config.Feed{ID: "f", Kinds: specs})
+		has := strings.Count(d, "ISO 12312-2") == 1 && strings.Contains(d, "During a solar eclipse, never look at the Sun without eye protection") &&
+			strings.HasSuffix(d, "Follow the advice of your local health authority.")
+		if has != c.want || strings.Count(d, "ISO 12312-2") > 1 || !strings.Contains(d, CalendarCaution) {
+			t.Errorf("%v: eclipse caution %v, want %v:\n%s", c.kinds, has, c.want, d)
+		}
+	}
+}

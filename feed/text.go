@@ -358,7 +358,8 @@ const CalendarCaution = "Caution: times are computed for planning from the site'
 // CalendarDescription is the description of feed f of site s: the feed's
 // own text, what the entries of each of its kinds mean (kindMeanings:
 // written once here, not on each of hundreds of entries that only differ
-// in their times) and CalendarCaution.
+// in their times) and CalendarCaution, with the eye protection an eclipse
+// needs (calendarEclipseCaution) when the feed has solar eclipses.
 func CalendarDescription(s *config.Site, f *config.Feed) string {
 	var b strings.Builder
 	if f.Description != "" {
@@ -368,7 +369,27 @@ func CalendarDescription(s *config.Site, f *config.Feed) string {
 		b.WriteString(strings.Join(m, "\n") + "\n\n")
 	}
 	b.WriteString(CalendarCaution)
+	if hasKind(f.Kinds, "solar-eclipse") {
+		b.WriteString(" " + calendarEclipseCaution)
+	}
 	return b.String()
+}
+
+// calendarEclipseCaution follows CalendarCaution in the description of a
+// calendar with solar eclipses: the caution each eclipse entry carries
+// (cautionEclipse), said of the calendar as the README says it.
+var calendarEclipseCaution = "During a solar eclipse, n" + cautionEclipse[1:]
+
+// hasKind says whether specs have the kind name, alone or in a group.
+func hasKind(specs []config.KindSpec, name string) bool {
+	for _, spec := range specs {
+		for _, k := range spec.Kind.Members() {
+			if k.Name == name {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 // kindMeanings are the sentences that say what the entries of the kinds of

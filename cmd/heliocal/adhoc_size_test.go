@@ -3,8 +3,10 @@ package main
 import (
 	"io"
 	"net/http"
+	"os"
 	"regexp"
 	"strconv"
+	"strings"
 	"testing"
 )
 
@@ -48,5 +50,13 @@ func TestAdhocLimitAsDocumented(t *testing.T) {
 	}
 	if size, _ := strconv.ParseFloat(string(m[1]), 64); size <= 1 {
 		t.Errorf("refused size %s MB is not over 1 MB", m[1])
+	}
+	// the refusal is quoted in docs/serving.md word for word
+	doc, err := os.ReadFile("../../docs/serving.md")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if quoted := strings.TrimSpace(string(msg)); !strings.Contains(strings.Join(strings.Fields(string(doc)), " "), "`"+quoted+"`") {
+		t.Errorf("docs/serving.md does not quote the refusal as it is: %q", quoted)
 	}
 }

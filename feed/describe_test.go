@@ -279,3 +279,14 @@ func TestEclipseCautionInCalendarDescription(t *testing.T) {
 		}
 	}
 }
+
+// An angle written to a tenth of a degree that rounds to zero has no sign:
+// a solar noon or Moon transit 0.03° below the horizon is "at 0.0°
+// altitude", not "−0.0°" (a signed zero is no quantity).
+func TestDegreesNoNegativeZero(t *testing.T) {
+	for a, want := range map[float64]string{-0.04: "0.0°", -0.0: "0.0°", 0.04: "0.0°", -0.06: "−0.1°", -12: "−12.0°", 35.14: "35.1°"} {
+		if got := degrees(a); got != want {
+			t.Errorf("degrees(%v) = %q, want %q", a, got, want)
+		}
+	}
+}

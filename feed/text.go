@@ -259,9 +259,13 @@ func days(d time.Duration) string {
 	return fmt.Sprintf("%d d %d h", int(d/(24*time.Hour)), int((d%(24*time.Hour))/time.Hour))
 }
 
-// degrees formats an angle with one decimal and a proper minus sign.
+// degrees formats an angle with one decimal and a proper minus sign; an
+// angle that rounds to zero has none ("0.0°", never "−0.0°").
 func degrees(a float64) string {
 	s := fmt.Sprintf("%.1f°", a)
+	if s == "-0.0°" {
+		return "0.0°"
+	}
 	return strings.Replace(s, "-", "−", 1)
 }
 

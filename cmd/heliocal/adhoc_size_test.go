@@ -31,12 +31,14 @@ func TestAdhocLimitAsDocumented(t *testing.T) {
 		return r.StatusCode, b
 	}
 	// 400 days fitting, a year does too
+	var sizes []string // in MB, as docs/serving.md gives them
 	for _, days := range []string{"365", "400"} {
 		code, b := get("days=" + days)
 		if code != http.StatusOK || len(b) >= 1_000_000 {
 			t.Errorf("default kinds, %s days: status %d, %d bytes; want 200 under 1 MB", days, code, len(b))
 		}
 		t.Logf("default kinds, %s days: %d bytes", days, len(b))
+		sizes = append(sizes, strconv.FormatFloat(float64(len(b))/1e6, 'f', 2, 64))
 	}
 	const six = "kinds=sunrise,sunset,civil-dawn,civil-dusk,solar-noon,golden-hour&"
 	code, msg := get(six + "days=400")
@@ -56,7 +58,14 @@ func TestAdhocLimitAsDocumented(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if quoted := strings.TrimSpace(string(msg)); !strings.Contains(strings.Join(strings.Fields(string(doc)), " "), "`"+quoted+"`") {
+	text := strings.Join(strings.Fields(string(doc)), " ")
+	if quoted := strings.TrimSpace(string(msg)); !strings.Contains(text, "`"+quoted+"`") {
 		t.Errorf("docs/serving.md does not quote the refusal as it is: %q", quoted)
+	}
+	// and its figures: the default kinds' sizes, the six kinds' size and days
+	for _, want := range []string{"(" + sizes[0] + " MB and " + sizes[1] + " MB at 47.8° N)", "(" + string(m[1]) + " MB; `days=" + string(m[2]) + "` fits)"} {
+		if !strings.Contains(text, want) {
+			t.Errorf("docs/serving.md does not say %q", want)
+		}
 	}
 }

@@ -302,8 +302,16 @@ func refractionText(o astro.Observer) string {
 	return fmt.Sprintf("refraction for %.0f hPa and %s °C", o.Pressure, strings.Replace(strconv.FormatFloat(math.Round(o.Temperature*10)/10, 'f', -1, 64), "-", "−", 1))
 }
 
+// where names site s in a text with its coordinates: "Fernhollow Mixed Farm
+// (48.260° N, 15.920° E)"; a place named by its coordinates alone, as
+// `events --lat --lon` and ad-hoc feeds name it ("-45.0000, -72.0000"), is
+// written once: "45.000° S, 72.000° W".
 func where(s *config.Site) string {
-	return s.Name + " (" + Coords(s.Latitude, s.Longitude, 3) + ")"
+	c := Coords(s.Latitude, s.Longitude, 3)
+	if s.Name == "" || s.Name == fmt.Sprintf("%.4f, %.4f", s.Latitude, s.Longitude) {
+		return c
+	}
+	return s.Name + " (" + c + ")"
 }
 
 var plainNames = map[string]string{

@@ -311,3 +311,18 @@ func TestWhereNamesCoordinatesOnce(t *testing.T) {
 		}
 	}
 }
+
+// A note of a date without a Moon transit names the place and the date of
+// the missing transit before the reason, not after it ("… about 50
+// minutes later each day at <site> on <date>" read as if the reason were
+// of that place and date). The Moon transits about 50 minutes later each
+// day on average (24 h 50 min, common knowledge), so about once a month a
+// date has none.
+func TestMoonTransitNoteReads(t *testing.T) {
+	s := site(t, "Cairnmoor", 39.08, -105.42, "America/Denver")
+	title, desc := describeMoonNote(newSiteInfo(s), Note{Kind: mustKinds(t, "moon-transit")[0], Date: date("2026-12-23")})
+	if title != "No Moon transit today: the Moon crosses the meridian about 50 minutes later each day" ||
+		desc != "No Moon transit at Cairnmoor (39.080° N, 105.420° W) on Wednesday 23 December 2026: the Moon crosses the meridian about 50 minutes later each day." {
+		t.Errorf("title %q\ndescription %q", title, desc)
+	}
+}

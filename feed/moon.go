@@ -312,7 +312,11 @@ func describeMoonNote(s *siteInfo, n Note) (string, string) {
 			title = fmt.Sprintf("No moon%s today", verb)
 		}
 	case "moon-transit":
-		title = "No Moon transit today: the Moon crosses the meridian about 50 minutes later each day"
+		// the place and the date are of the missing transit, not of the
+		// reason: they come first in the description
+		const why = "the Moon crosses the meridian about 50 minutes later each day"
+		return "No Moon transit today: " + why,
+			fmt.Sprintf("No Moon transit at %s on %s: %s.", s.where, n.Date.Format("Monday 2 January 2006"), why)
 	case "dark-window":
 		why := "the Moon is up and bright all through the astronomical night"
 		switch {

@@ -573,7 +573,12 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 		b = append(append(append(b, "No time today: the start, "...), pt.startName...), ", does not happen on "...)
 		b = d.AppendFormat(b, "Monday 2 January 2006")
 		if n, ok := times[pl.start.Event].note(d); ok {
+			// the note's title as the reason in brackets, within the
+			// sentence: "(polar night: the Sun does not rise today)"
 			t, _ := describeNote(w.site, n)
+			if t != "" && t[0] >= 'A' && t[0] <= 'Z' {
+				t = string(t[0]+'a'-'A') + t[1:]
+			}
 			b = append(append(append(b, " ("...), t...), ')')
 		}
 		return done(append(b, '.'))

@@ -165,10 +165,13 @@ func TestPlanSouthern(t *testing.T) {
 // time; on 21 October the sunset at 12:24 (row sun-0180) starts it.
 func TestPlanPolar(t *testing.T) {
 	s := site(t, "lat80", 80, 0, "UTC")
-	for _, d := range []string{"2015-12-21", "2015-04-14"} {
+	// the reason, the date's note, is written within the sentence, in
+	// brackets and without a capital
+	for d, why := range map[string]string{"2015-12-21": "(polar night: the Sun does not rise today).", "2015-04-14": "(midnight sun: the Sun does not set today)."} {
 		es := planEntries(t, s, d, d, config.Plan{Title: "Evening round", Date: "every day", Start: "sunset", End: "23:00"})
-		if len(es) != 1 || !es[0].AllDay || es[0].Facts.Missing != "sunset" || !strings.Contains(es[0].Title, "no sunset today") {
-			t.Errorf("%s: %+v, want an all-day note", d, es)
+		if len(es) != 1 || !es[0].AllDay || es[0].Facts.Missing != "sunset" || !strings.Contains(es[0].Title, "no sunset today") ||
+			!strings.Contains(es[0].Description, "the start, sunset, does not happen on ") || !strings.Contains(es[0].Description, why) {
+			t.Errorf("%s: %+v, want an all-day note ending %q", d, es, why)
 		}
 	}
 	es := planEntries(t, s, "2015-10-21", "2015-10-21", config.Plan{Title: "Evening round", Date: "every day", Start: "sunset", End: "23:00"})

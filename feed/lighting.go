@@ -633,7 +633,7 @@ func describeLightingNote(s *siteInfo, n Note, last time.Time) (string, string) 
 		}
 		title := "Lamps not scheduled: " + need + " needed, " + n.Why
 		return title, title + ".\nThe target of " + target + " is not reached on " + n.Date.Format("Monday 2 January 2006") +
-			" at " + s.where + " (natural day " + hm(n.DayLength) + ")."
+			" at " + s.where + ": the natural day is " + hm(n.DayLength) + "."
 	}
 	if n.Until.IsZero() {
 		title := fmt.Sprintf("No lamps needed through %s: the natural day is ≥ %s", last.Format("2 Jan"), target)

@@ -484,7 +484,9 @@ type lightingText struct {
 	target  string // "16 h"
 	goal    string // "; target 16 h.\n"
 	limits  string // "lamps on no earlier than 05:30, off no later than 22:00"
-	clipped string // why a clipped period falls short
+	// the limit that clips a morning period (earliest_on) and an evening
+	// one (latest_off), as limits writes it; "" when the kind has none
+	onLimit, offLimit string
 	minimum string // "15 min"
 }
 
@@ -506,7 +508,12 @@ func (w *entryWriter) lightingText(spec *config.KindSpec) *lightingText {
 		lt.natural = "Direct Sun over the skyline "
 	}
 	lt.limits = limitsOf(*spec).text
-	lt.clipped = "Clipped (" + lt.limits + "): the target is not reached today.\n"
+	if spec.EarliestOn != "" {
+		lt.onLimit = limitsOf(config.KindSpec{EarliestOn: spec.EarliestOn}).text
+	}
+	if spec.LatestOff != "" {
+		lt.offLimit = limitsOf(config.KindSpec{LatestOff: spec.LatestOff}).text
+	}
 	lt.minimum = amount(spec.MinDuration.D())
 	w.lamp = lt
 	return lt
@@ -559,7 +566,7 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	}
 	switch {
 	case whole && e.Clipped && e.Short:
-		b = append(b, lt.clipped...)
+		b = append(append(append(b, "Clipped ("...), lt.limits...), "): the target is not reached today.\n"...)
 	case whole && e.Clipped:
 		b = append(append(append(b, "Moved within the limits ("...), lt.limits...), "): the target is reached.\n"...)
 	case e.MadeUp > 0 && e.MadeUpWhy == "minimum":
@@ -571,19 +578,32 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	case e.MadeUp > 0:
 		b = appendHM(b, e.MadeUp)
 		b = append(append(append(b, " longer than half the shortfall, to make up for the "...), other...), " lamps, which are clipped ("...)
-		b = append(append(b, lt.limits...), ").\n"...)
+		b = append(append(b, lt.partLimit(other)...), ").\n"...)
 	}
 	switch {
 	case whole:
 	case e.Clipped && e.Short:
-		b = append(b, lt.clipped...)
+		b = append(append(append(b, "Clipped ("...), lt.partLimit(e.Part)...), "): the target is not reached today.\n"...)
 	case e.Clipped:
-		b = append(append(append(append(b, "Clipped ("...), lt.limits...), "); the "...), other...)
+		b = append(append(append(append(b, "Clipped ("...), lt.partLimit(e.Part)...), "); the "...), other...)
 		b = append(b, " lamps make up the difference: the target is reached.\n"...)
 	case e.Short:
 		b = append(b, "The target is not reached today.\n"...)
 	}
 	return b[:len(b)-1], t // without the last line's newline
+}
+
+// partLimit is the limit that clips a period of lamps of the part (clip:
+// earliest_on a morning period, latest_off an evening one), all the
+// kind's limits for another part.
+func (lt *lightingText) partLimit(part string) string {
+	switch {
+	case part == partMorning && lt.onLimit != "":
+		return lt.onLimit
+	case part == partEvening && lt.offLimit != "":
+		return lt.offLimit
+	}
+	return lt.limits
 }
 
 // lightingMeaning says, once in the calendar's description, what the

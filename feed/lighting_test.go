@@ -365,6 +365,21 @@ func TestLightingBothMakesUp(t *testing.T) {
 			t.Errorf("%s: %q, short %v: both periods are cut, the target is not reached", x.Facts.Part, x.Title, x.Facts.Short)
 		}
 	}
+	// each period names the limit that cuts it (earliest_on the morning,
+	// latest_off the evening), not both
+	onText, offText := "lamps on no earlier than "+onAt.Format("15:04"), "off no later than "+offAt.Format("15:04")
+	if !strings.Contains(m.Description, "Clipped ("+onText+"): the target is not reached today.") || strings.Contains(m.Description, offText) ||
+		!strings.Contains(e.Description, "Clipped ("+offText+"): the target is not reached today.") || strings.Contains(e.Description, onText) {
+		t.Errorf("each period should name its own limit:\n%s\n%s", m.Description, e.Description)
+	}
+	// with both limits set and only the evening cut, the morning says that
+	// the evening is clipped by latest_off alone
+	es = run("00:30", offAt.Format("15:04"))
+	m, e = es[0], es[1]
+	if m.Facts.Short || !strings.Contains(m.Description, "which are clipped ("+offText+").") || strings.Contains(m.Description, "00:30") ||
+		!strings.Contains(e.Description, "Clipped ("+offText+"); the morning lamps make up the difference") {
+		t.Errorf("only the evening is cut, by latest_off:\n%s\n%s", m.Description, e.Description)
+	}
 }
 
 // TestLightingMinimum checks min_duration on lamp periods against the USNO

@@ -487,7 +487,7 @@ type lightingText struct {
 	// the limit that clips a morning period (earliest_on) and an evening
 	// one (latest_off), as limits writes it; "" when the kind has none
 	onLimit, offLimit string
-	minimum string // "15 min"
+	minimum           string // "15 min"
 }
 
 // lightingKey is what a lighting kind's text depends on.

@@ -1,0 +1,107 @@
+#!/usr/bin/env python3
+"""Print the PyEphem (libastro) values that heliocal's tests record as
+outside check values for the README's figures on a day across midnight and
+on refraction scaled for the air:
+
+    apt-get install -y python3-ephem
+    python3 tools/pyephem-checks/values.py
+
+The tests do not run this script: the values it prints are recorded in them
+with this script's name beside each one (cmd/heliocal/readme_test.go
+TestReadmeDayAcrossMidnight; feed/change_test.go
+TestSummaryShowsSunsetAfterMidnight and TestProfilesDayLengthIsTheSummarys;
+astro/atmosphere_test.go TestRefractionScaling).
+
+Definitions, matched to heliocal's:
+  * sunrise/sunset: the Sun's centre at -0.8333 deg (upper limb 16' plus 34'
+    of refraction at a sea-level flat horizon): Observer with pressure = 0
+    (no refraction of PyEphem's own), horizon -0.8333 deg, use_center;
+    elevation 0; PyEphem's positions are topocentric, as heliocal's are.
+  * refraction scaled for the air (Meeus, Astronomical Algorithms 2nd ed.,
+    ch. 16): 34' * (P/1010) * (283/(273+T)), so the threshold is
+    -(34' * f + 16'), again with pressure = 0 and use_center.
+  * day length: from a sunrise to the next sunset, even past midnight.
+For comparison the script also prints the shifts with PyEphem's own
+refraction model (pressure/temp set on the Observer, horizon 0, upper limb):
+libastro refracts 37.1' at the horizon at 1010 hPa and 10 C, not 34', so its
+shifts are some 10 % larger; they are a different definition, recorded for
+reference and checked loosely.
+PyEphem takes times as UT (no UT1 - UTC) and uses its own Delta T and solar
+theory: agreement with heliocal is expected within about a second for
+events at mid latitudes, within a few seconds where the Sun grazes the
+horizon (78.2 N, sunset near midnight: about 0.7 deg per hour).
+"""
+
+import ephem
+
+SUN = ephem.Sun()
+HOUR = ephem.hour
+
+
+def observer(lat, lon, horizon, pressure=0.0, temp=10.0):
+    o = ephem.Observer()
+    o.lat, o.lon = str(lat), str(lon)
+    o.elevation = 0
+    o.pressure = pressure
+    o.temp = temp
+    o.horizon = str(horizon)
+    return o
+
+
+def iso(d):
+    """ephem.Date as ISO 8601 UTC to the millisecond."""
+    t = ephem.Date(d).datetime()
+    return t.strftime("%Y-%m-%dT%H:%M:%S.") + "%03dZ" % round(t.microsecond / 1000)
+
+
+def fmt_len(s):
+    h, r = divmod(s, 3600)
+    m, r = divmod(r, 60)
+    return "%d h %02d min %06.3f s" % (h, m, r)
+
+
+def day_across_midnight():
+    print("# 78.2 N, 15.6 E, sea level; local dates in CEST (UTC+2, Arctic/Longyearbyen)")
+    prev = None
+    for date in ("2027/4/15", "2027/4/16"):
+        o = observer(78.2, 15.6, -0.8333)
+        o.date = ephem.Date(ephem.Date(date) + 22 * HOUR)  # local midnight, 00:00 CEST of the next date
+        rise = o.next_rising(SUN, use_center=True)
+        o.date = rise
+        sset = o.next_setting(SUN, use_center=True)
+        length = (sset - rise) * 86400
+        local = ephem.Date(rise + 2 * HOUR).datetime().date()
+        line = "%s sunrise %s (CEST %s) sunset %s (CEST %s) day %.3f s = %s" % (
+            local, iso(rise), ephem.Date(rise + 2 * HOUR), iso(sset), ephem.Date(sset + 2 * HOUR), length, fmt_len(length))
+        if prev is not None:
+            line += " change %+.3f s" % (length - prev)
+        print(line)
+        prev = length
+
+
+def refraction_scaled():
+    print("# 48.2 N, 16.4 E, sea level, 2027-01-15 (UT)")
+
+    def rise_set(o, center=True):
+        o.date = "2027/1/15"
+        return o.next_rising(SUN, use_center=center), o.next_setting(SUN, use_center=center)
+
+    def factor(p, t):
+        return p / 1010 * 283 / (273 + t)
+
+    r0, s0 = rise_set(observer(48.2, 16.4, -0.8333))
+    print("standard: sunrise %s sunset %s" % (iso(r0), iso(s0)))
+    n0 = rise_set(observer(48.2, 16.4, 0, 1010, 10), center=False)
+    for name, p, t in (("cold", 1030, -20), ("hot", 1000, 35)):
+        r, s = rise_set(observer(48.2, 16.4, -(34 * factor(p, t) + 16) / 60))
+        print("%s (%g hPa, %g C), Meeus-scaled 34': sunrise earlier by %.3f s, sunset later by %.3f s, day longer by %.3f s" % (
+            name, p, t, (r0 - r) * 86400, (s - s0) * 86400, ((s - r) - (s0 - r0)) * 86400))
+        nr, ns = rise_set(observer(48.2, 16.4, 0, p, t), center=False)
+        print("%s (%g hPa, %g C), PyEphem's own refraction: sunrise earlier by %.3f s, sunset later by %.3f s, day longer by %.3f s" % (
+            name, p, t, (n0[0] - nr) * 86400, (ns - n0[1]) * 86400, ((ns - nr) - (n0[1] - n0[0])) * 86400))
+
+
+if __name__ == "__main__":
+    print("PyEphem %s (libastro)" % ephem.__version__)
+    day_across_midnight()
+    refraction_scaled()

@@ -36,13 +36,22 @@ var (
 	pyephemSet16  = time.Date(2027, 4, 16, 21, 38, 4, 881e6, time.UTC) // 23:38:05 CEST
 	pyephemRise17 = time.Date(2027, 4, 17, 0, 14, 20, 933e6, time.UTC) // 02:14:21 CEST
 	pyephemSet17  = time.Date(2027, 4, 17, 22, 2, 31, 812e6, time.UTC) // 00:02:32 CEST on the 18th
+	// the midnight Sun ends: its last sunset, then the day of 25 August
+	// that ends after midnight, then 26 August's
+	pyephemLastSet = time.Date(2027, 8, 24, 22, 39, 52, 303e6, time.UTC) // 00:39:52 CEST, 25 August
+	pyephemRise25  = time.Date(2027, 8, 24, 23, 22, 6, 950e6, time.UTC)  // 01:22:07 CEST, 25 August
+	pyephemSet25   = time.Date(2027, 8, 25, 22, 0, 39, 406e6, time.UTC)  // 00:00:39 CEST on the 26th
+	pyephemRise26  = time.Date(2027, 8, 26, 0, 0, 48, 894e6, time.UTC)   // 02:00:49 CEST
+	pyephemSet26   = time.Date(2027, 8, 26, 21, 37, 51, 948e6, time.UTC) // 23:37:52 CEST
 )
 
 // pyephemTolerance bounds heliocal's distance from those values: PyEphem's
 // shorter solar theory and its own ΔT put it within about 0.2 s of heliocal
 // there even where the Sun grazes the horizon (about 0.7° an hour at the
-// sunset near midnight), while a real error exceeds it by far (1′ of
-// refraction moves that sunset by about 85 s, the Sun's parallax about 12 s).
+// sunset near midnight in April, 0.3° an hour at the midnight Sun's last
+// sunset; a day length that sums three such instants within 0.6 s), while
+// a real error exceeds it by far (1′ of refraction moves the April sunset
+// by about 85 s, the Sun's parallax about 12 s).
 const pyephemTolerance = time.Second
 
 func within(d, want time.Duration) bool {
@@ -57,7 +66,8 @@ func within(d, want time.Duration) bool {
 // day, and each change from the day before is the difference of two such
 // days, not of clock times. (A date that also ends a stretch of midnight
 // Sun, 25 August, adds that stretch's last minutes after its midnight.) The
-// site is invented, at Svalbard's latitude.
+// site is invented, at Svalbard's latitude. The instants and day lengths of
+// 16–17 April and 25–26 August are PyEphem's (see pyephemRise16).
 func TestDayLengthAcrossMidnight(t *testing.T) {
 	s := site(t, "isfjell-hut", 78.2, 15.6, "Arctic/Longyearbyen")
 	for _, w := range [][2]string{{"2027-04-08", "2027-04-22"}, {"2027-08-20", "2027-09-03"}} {
@@ -79,28 +89,38 @@ func TestDayLengthAcrossMidnight(t *testing.T) {
 					t.Errorf("%s: change %v, want %v − %v", d.Format(time.DateOnly), e.DayChange, e.DayLength, prev.DayLength)
 				}
 			}
-			if w[0] == "2027-04-08" {
-				// 16 and 17 April against PyEphem (see pyephemRise16)
-				want := map[string]time.Time{"sunrise 2027-04-16": pyephemRise16, "sunset 2027-04-16": pyephemSet16,
-					"sunrise 2027-04-17": pyephemRise17, "sunset 2027-04-18": pyephemSet17}
-				for _, e := range events {
-					k := e.Kind.Name + " " + e.Date.Format(time.DateOnly)
-					if at, ok := want[k]; ok {
-						delete(want, k)
-						if !within(e.Start.Sub(at), 0) {
-							t.Errorf("%s: heliocal %s, PyEphem %s", k, e.Start.Format(time.RFC3339Nano), at.Format(time.RFC3339Nano))
-						}
+			// 16 and 17 April, 25 and 26 August against PyEphem (see pyephemRise16)
+			want := map[string]time.Time{"sunrise 2027-04-16": pyephemRise16, "sunset 2027-04-16": pyephemSet16,
+				"sunrise 2027-04-17": pyephemRise17, "sunset 2027-04-18": pyephemSet17}
+			if w[0] == "2027-08-20" {
+				want = map[string]time.Time{"sunset 2027-08-25": pyephemLastSet, "sunrise 2027-08-25": pyephemRise25,
+					"sunset 2027-08-26": pyephemSet25, "sunrise 2027-08-26": pyephemRise26}
+			}
+			for _, e := range events {
+				k := e.Kind.Name + " " + e.Date.Format(time.DateOnly)
+				if at, ok := want[k]; ok {
+					delete(want, k)
+					if !within(e.Start.Sub(at), 0) {
+						t.Errorf("%s: heliocal %s, PyEphem %s", k, e.Start.Format(time.RFC3339Nano), at.Format(time.RFC3339Nano))
 					}
 				}
-				if len(want) > 0 {
-					t.Errorf("not found: %v", want)
-				}
-				d16, d17 := summary[date("2027-04-16")], summary[date("2027-04-17")]
-				w16, w17 := pyephemSet16.Sub(pyephemRise16), pyephemSet17.Sub(pyephemRise17)
-				if !within(d16.DayLength, w16) || !within(d17.DayLength, w17) || !within(d17.DayChange, w17-w16) {
-					t.Errorf("16 April: day %v; 17 April: day %v, change %v; PyEphem: %v; %v, %v",
-						d16.DayLength, d17.DayLength, d17.DayChange, w16, w17, w17-w16)
-				}
+			}
+			if len(want) > 0 {
+				t.Errorf("not found: %v", want)
+			}
+			first, second := "2027-04-16", "2027-04-17"
+			w1, w2 := pyephemSet16.Sub(pyephemRise16), pyephemSet17.Sub(pyephemRise17)
+			if w[0] == "2027-08-20" {
+				// 25 August: the day across midnight and, before it, the
+				// midnight Sun's last minutes after 00:00 CEST (22:00 UTC)
+				first, second = "2027-08-25", "2027-08-26"
+				w1 = pyephemSet25.Sub(pyephemRise25) + pyephemLastSet.Sub(time.Date(2027, 8, 24, 22, 0, 0, 0, time.UTC))
+				w2 = pyephemSet26.Sub(pyephemRise26)
+			}
+			d1, d2 := summary[date(first)], summary[date(second)]
+			if !within(d1.DayLength, w1) || !within(d2.DayLength, w2) || !within(d2.DayChange, w2-w1) {
+				t.Errorf("%s: day %v; %s: day %v, change %v; PyEphem: %v; %v, %v",
+					first, d1.DayLength, second, d2.DayLength, d2.DayChange, w1, w2, w2-w1)
 			}
 			pastMidnight := 0
 			var rise *Event

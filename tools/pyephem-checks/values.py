@@ -20,7 +20,9 @@ Definitions, matched to heliocal's:
   * refraction scaled for the air (Meeus, Astronomical Algorithms 2nd ed.,
     ch. 16): 34' * (P/1010) * (283/(273+T)), so the threshold is
     -(34' * f + 16'), again with pressure = 0 and use_center.
-  * day length: from a sunrise to the next sunset, even past midnight.
+  * day length: from a sunrise to the next sunset, even past midnight; on
+    the date the midnight Sun ends (25 August 2027 at 78.2 N) heliocal adds
+    the stretch from local midnight to that last sunset, as printed.
 For comparison the script also prints the shifts with PyEphem's own
 refraction model (pressure/temp set on the Observer, horizon 0, upper limb):
 libastro refracts 37.1' at the horizon at 1010 hPa and 10 C, not 34', so its
@@ -79,6 +81,30 @@ def day_across_midnight():
         prev = length
 
 
+def end_of_midnight_sun():
+    print("# 78.2 N, 15.6 E, sea level; the midnight Sun ends: local dates in CEST (UTC+2)")
+    o = observer(78.2, 15.6, -0.8333)
+    midnight = ephem.Date("2027/8/24 22:00")  # 00:00 CEST, 25 August
+    o.date = midnight
+    last = o.next_setting(SUN, use_center=True)
+    o.date = last
+    rise25 = o.next_rising(SUN, use_center=True)
+    o.date = rise25
+    set25 = o.next_setting(SUN, use_center=True)
+    o.date = set25
+    rise26 = o.next_rising(SUN, use_center=True)
+    o.date = rise26
+    set26 = o.next_setting(SUN, use_center=True)
+    stretch = (last - midnight) * 86400
+    span25, span26 = (set25 - rise25) * 86400, (set26 - rise26) * 86400
+    print("midnight Sun sets %s (CEST %s): %.3f s after midnight" % (iso(last), ephem.Date(last + 2 * HOUR), stretch))
+    print("2027-08-25 sunrise %s (CEST %s) sunset %s (CEST %s) span %.3f s, day with the stretch %.3f s = %s" % (
+        iso(rise25), ephem.Date(rise25 + 2 * HOUR), iso(set25), ephem.Date(set25 + 2 * HOUR), span25, span25 + stretch,
+        fmt_len(span25 + stretch)))
+    print("2027-08-26 sunrise %s sunset %s day %.3f s change %+.3f s" % (
+        iso(rise26), iso(set26), span26, span26 - span25 - stretch))
+
+
 def refraction_scaled():
     print("# 48.2 N, 16.4 E, sea level, 2027-01-15 (UT)")
 
@@ -104,4 +130,5 @@ def refraction_scaled():
 if __name__ == "__main__":
     print("PyEphem %s (libastro)" % ephem.__version__)
     day_across_midnight()
+    end_of_midnight_sun()
     refraction_scaled()

@@ -36,6 +36,9 @@ var (
 	pyephemSet16  = time.Date(2027, 4, 16, 21, 38, 4, 881e6, time.UTC) // 23:38:05 CEST
 	pyephemRise17 = time.Date(2027, 4, 17, 0, 14, 20, 933e6, time.UTC) // 02:14:21 CEST
 	pyephemSet17  = time.Date(2027, 4, 17, 22, 2, 31, 812e6, time.UTC) // 00:02:32 CEST on the 18th
+	// 18 April: the Sun rises and does not set again for days (PyEphem: the
+	// centre stays above −0.8333° for the next 48 h), the midnight Sun
+	pyephemRise18 = time.Date(2027, 4, 17, 23, 49, 28, 546e6, time.UTC) // 01:49:29 CEST, 18 April
 	// the midnight Sun ends: its last sunset, then the day of 25 August
 	// that ends after midnight, then 26 August's
 	pyephemLastSet = time.Date(2027, 8, 24, 22, 39, 52, 303e6, time.UTC) // 00:39:52 CEST, 25 August
@@ -67,7 +70,7 @@ func within(d, want time.Duration) bool {
 // days, not of clock times. (A date that also ends a stretch of midnight
 // Sun, 25 August, adds that stretch's last minutes after its midnight.) The
 // site is invented, at Svalbard's latitude. The instants and day lengths of
-// 16–17 April and 25–26 August are PyEphem's (see pyephemRise16).
+// 16–18 April and 25–26 August are PyEphem's (see pyephemRise16).
 func TestDayLengthAcrossMidnight(t *testing.T) {
 	s := site(t, "isfjell-hut", 78.2, 15.6, "Arctic/Longyearbyen")
 	for _, w := range [][2]string{{"2027-04-08", "2027-04-22"}, {"2027-08-20", "2027-09-03"}} {
@@ -91,7 +94,7 @@ func TestDayLengthAcrossMidnight(t *testing.T) {
 			}
 			// 16 and 17 April, 25 and 26 August against PyEphem (see pyephemRise16)
 			want := map[string]time.Time{"sunrise 2027-04-16": pyephemRise16, "sunset 2027-04-16": pyephemSet16,
-				"sunrise 2027-04-17": pyephemRise17, "sunset 2027-04-18": pyephemSet17}
+				"sunrise 2027-04-17": pyephemRise17, "sunset 2027-04-18": pyephemSet17, "sunrise 2027-04-18": pyephemRise18}
 			if w[0] == "2027-08-20" {
 				want = map[string]time.Time{"sunset 2027-08-25": pyephemLastSet, "sunrise 2027-08-25": pyephemRise25,
 					"sunset 2027-08-26": pyephemSet25, "sunrise 2027-08-26": pyephemRise26}
@@ -116,6 +119,14 @@ func TestDayLengthAcrossMidnight(t *testing.T) {
 				first, second = "2027-08-25", "2027-08-26"
 				w1 = pyephemSet25.Sub(pyephemRise25) + pyephemLastSet.Sub(time.Date(2027, 8, 24, 22, 0, 0, 0, time.UTC))
 				w2 = pyephemSet26.Sub(pyephemRise26)
+			}
+			if w[0] == "2027-04-08" {
+				// 18 April: from the sunrise to the end of the date (00:00
+				// CEST, 22:00 UTC), the midnight Sun's first part
+				want := time.Date(2027, 4, 18, 22, 0, 0, 0, time.UTC).Sub(pyephemRise18)
+				if d := summary[date("2027-04-18")].DayLength; !within(d, want) {
+					t.Errorf("2027-04-18: day %v, PyEphem %v", d, want)
+				}
 			}
 			d1, d2 := summary[date(first)], summary[date(second)]
 			if !within(d1.DayLength, w1) || !within(d2.DayLength, w2) || !within(d2.DayChange, w2-w1) {

@@ -79,6 +79,20 @@ def day_across_midnight():
             line += " change %+.3f s" % (length - prev)
         print(line)
         prev = length
+    o = observer(78.2, 15.6, -0.8333)
+    o.date = sset
+    rise = o.next_rising(SUN, use_center=True)
+    low = min(_alt(o, ephem.Date(rise + k * ephem.minute)) for k in range(1, 48 * 60))
+    print("2027-04-18 sunrise %s (CEST %s), then the midnight Sun: lowest altitude of the next 48 h %.4f deg; "
+          "day to 00:00 CEST of the 19th %.3f s" % (
+              iso(rise), ephem.Date(rise + 2 * HOUR), low, (ephem.Date("2027/4/18 22:00") - rise) * 86400))
+
+
+def _alt(o, when):
+    """The centre's topocentric altitude in degrees at when (no refraction)."""
+    o.date = when
+    SUN.compute(o)
+    return SUN.alt / ephem.degree
 
 
 def end_of_midnight_sun():

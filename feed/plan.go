@@ -70,9 +70,7 @@ func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed,
 	// and so are its working slices (the thresholds' crossings, the
 	// slices by date, the transits): entries copy what they keep
 	buf := collectorBuffers.Get().(*buffers)
-	buf.times.release()
-	buf.durations.release()
-	buf.flags.release()
+	buf.releaseWorking()
 	col.xsBuf, col.scratch = &buf.crossings, buf
 	defer collectorBuffers.Put(buf)
 	if len(f.Plans) == 0 {

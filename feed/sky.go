@@ -282,6 +282,14 @@ func (r *reuse[T]) take(n int) []T {
 // release makes every slice taken available again.
 func (r *reuse[T]) release() { r.used = 0 }
 
+// releaseWorking makes the collector's working slices by date (times,
+// durations, flags) available to the next chunk's collector.
+func (b *buffers) releaseWorking() {
+	b.times.release()
+	b.durations.release()
+	b.flags.release()
+}
+
 // eventsPerDate is about how many events specs give a date: one per kind,
 // two for a threshold crossed both ways.
 func eventsPerDate(specs []config.KindSpec) int {
@@ -437,9 +445,7 @@ func (s *Sky) eventsFor(ctx context.Context, p Place, specs []config.KindSpec, f
 	if err != nil {
 		return nil, nil, err
 	}
-	buf.times.release()
-	buf.durations.release()
-	buf.flags.release()
+	buf.releaseWorking()
 	c := &collector{ctx: ctx, sky: s, p: p, first: first, last: last, events: buf.events[:0], notes: buf.notes[:0], xsBuf: &buf.crossings, scratch: buf}
 	// room for about every event at once: grown step by step, the buffer
 	// would be copied a dozen times

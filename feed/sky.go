@@ -1284,7 +1284,7 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 	n0 := len(c.events) // this kind's spans start here
 	var start time.Time
 	var entered mark
-	seen := make([]bool, c.last.Sub(c.first)/(24*time.Hour)+1) // by date from first: a span starts on it
+	seen := make([]bool, daysBetween(c.first, c.last)+1) // by date from first: a span starts on it
 	for _, m := range marks {
 		entering := (!m.high && m.dir == astro.Rising) || (m.high && m.dir == astro.Setting)
 		if entering && !in {
@@ -1308,7 +1308,7 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 			d := c.zone().date(start)
 			if c.inRange(d) {
 				c.events = append(c.events, Event{Kind: k, Start: start, End: m.t, Date: d, Part: part, Low: low, High: high})
-				seen[d.Sub(c.first)/(24*time.Hour)] = true
+				seen[daysBetween(c.first, d)] = true
 			}
 			start = time.Time{}
 		}

@@ -773,11 +773,8 @@ func bearing(e Event) string {
 
 // azimuthText is an event's azimuth in whole degrees with its compass
 // point, e.g. "125°, south-east".
-func azimuthText(e Event) string { return string(appendAzimuth(nil, e)) }
-
-// appendAzimuth appends azimuthText(e) to b.
-func appendAzimuth(b []byte, e Event) []byte {
-	return append(append(appendDegrees(b, e), ", "...), astro.CompassPoint(e.Azimuth)...)
+func azimuthText(e Event) string {
+	return string(appendDegrees(nil, e)) + ", " + astro.CompassPoint(e.Azimuth)
 }
 
 // appendAzimuthWords appends an event's azimuth as a sunrise's text has

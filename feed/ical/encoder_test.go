@@ -15,11 +15,7 @@ import (
 // calendar in between) writes each with the bytes Marshal writes for it
 // alone, and leaves the buffer's earlier bytes as they were.
 func TestEncoderReuse(t *testing.T) {
-	r := rand.New(rand.NewSource(7))
-	cals := []*feed.Calendar{siteYear(t, "Europe/Vienna"), siteYear(t, "UTC"), siteYear(t, "Australia/Lord_Howe")}
-	for range 30 {
-		cals = append(cals, randomCalendar(t, r))
-	}
+	cals := encoderCalendars(t, 7, 30)
 	enc := NewEncoder(Options{Version: "test"})
 	var buf []byte
 	for i, c := range cals {
@@ -42,16 +38,23 @@ func TestEncoderReuse(t *testing.T) {
 	}
 }
 
+// encoderCalendars are calendars for one Encoder to write one after
+// another: site-years in three zones, then n random calendars from seed.
+func encoderCalendars(t *testing.T, seed int64, n int) []*feed.Calendar {
+	r := rand.New(rand.NewSource(seed))
+	cals := []*feed.Calendar{siteYear(t, "Europe/Vienna"), siteYear(t, "UTC"), siteYear(t, "Australia/Lord_Howe")}
+	for range n {
+		cals = append(cals, randomCalendar(t, r))
+	}
+	return cals
+}
+
 // TestEncoderWriteTo: one Encoder writing calendars one after another to
 // writers writes each with the bytes Marshal writes for it alone, in
 // pieces of at most streamPiece bytes and an event or a line more, and
 // counts them; a failing writer stops the file with its error.
 func TestEncoderWriteTo(t *testing.T) {
-	r := rand.New(rand.NewSource(11))
-	cals := []*feed.Calendar{siteYear(t, "Europe/Vienna"), siteYear(t, "UTC"), siteYear(t, "Australia/Lord_Howe")}
-	for range 20 {
-		cals = append(cals, randomCalendar(t, r))
-	}
+	cals := encoderCalendars(t, 11, 20)
 	enc := NewEncoder(Options{Version: "test"})
 	for i, c := range cals {
 		want, werr := Marshal(c, Options{Version: "test"})

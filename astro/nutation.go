@@ -133,6 +133,18 @@ func nutationArgs(T float64) [5]float64 {
 	}
 }
 
+// nutationRates returns the rates of nutationArgs (degrees per Julian
+// century) at T: their derivatives, term by term (TestNutationRates).
+func nutationRates(T float64) [5]float64 {
+	return [5]float64{
+		445267.111480 + T*(2*-0.0019142+3*T/189474),
+		35999.050340 + T*(2*-0.0001603-3*T/300000),
+		477198.867398 + T*(2*0.0086972+3*T/56250),
+		483202.017538 + T*(2*-0.0036825+3*T/327270),
+		-1934.136261 + T*(2*0.0020708+3*T/450000),
+	}
+}
+
 // reduceDeg reduces x (degrees) to [0, 360) as x − 360·⌊x/360⌋: within an
 // ulp of x (1e-10° at most over 1800–2200), where norm360's exact
 // reduction by math.Mod costs a loop.
@@ -162,20 +174,13 @@ func nutationDaily(jdes []float64, buf *sampleBuffers) (dpsi, deps []float64) {
 	var S, C, sr, cr [nt]float64
 	for k0 := 0; k0 < n; k0 += sunChebDays {
 		// the fundamental arguments (degrees, reduced) and their rates
-		// (degrees per century, the derivatives of nutationArgs) at the
-		// run's start
+		// (degrees per century, nutationRates) at the run's start
 		T0 := T[k0]
 		x := nutationArgs(T0)
 		for j := range x {
 			x[j] = reduceDeg(x[j])
 		}
-		rate := [5]float64{
-			445267.111480 + T0*(2*-0.0019142+3*T0/189474),
-			35999.050340 + T0*(2*-0.0001603-3*T0/300000),
-			477198.867398 + T0*(2*0.0086972+3*T0/56250),
-			483202.017538 + T0*(2*-0.0036825+3*T0/327270),
-			-1934.136261 + T0*(2*0.0020708+3*T0/450000),
-		}
+		rate := nutationRates(T0)
 		for i := range nutationTable {
 			m := &nutationTable[i]
 			mult := [5]float64{float64(m.d), float64(m.m), float64(m.mp), float64(m.f), float64(m.om)}

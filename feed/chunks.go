@@ -35,8 +35,7 @@ const ChunkDays = 184
 // the local midnight that begins its date, but a span named by its evening
 // (a dark window) may start after the next midnight; writers that order by
 // Start across chunks hold back the events of a chunk that start after it
-// ends. The chunk's slices are
-// reused for a later chunk once fn returns.
+// ends. The chunk's slices are reused for a later chunk once fn returns.
 //
 // The chunks are computed by up to GOMAXPROCS goroutines at once (the
 // calling one among them), and each hands its chunk to fn when the chunks
@@ -149,7 +148,8 @@ func inOrder(ctx context.Context, n, workers int, compute func(context.Context, 
 	return ctx.Err()
 }
 
-// kindsNamed returns the kinds of specs named name ("photoperiod").
+// kindsNamed returns the kinds of specs named name ("photoperiod",
+// "lighting").
 func kindsNamed(specs []config.KindSpec, name string) []config.KindSpec {
 	var out []config.KindSpec
 	for _, sp := range specs {

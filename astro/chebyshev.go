@@ -81,11 +81,12 @@ var chebCos = func() (c [sunChebNodes][sunChebNodes]float64) {
 
 // slowNodes returns the slow terms' L (not reduced), B and R at the nodes
 // of n consecutive blocks from jde0 (value [v][i·sunChebNodes + j]: node
-// j, at mid + half·T₁(node j) = mid + half·chebCos[1][j], of block i). Node j of successive blocks lies
-// sunChebDays apart, so each term's cosine is carried from one block to the
-// next by a rotation (as daily does for the fast terms), computed afresh
-// every slowRestart blocks: the values agree with the series summed
-// (evalVSOP of slowTerms) to about 1e-15 of each term's amplitude.
+// j, at mid + half·T₁(node j) = mid + half·chebCos[1][j], of block i).
+// Node j of successive blocks lies sunChebDays apart, so each term's cosine
+// is carried from one block to the next by a rotation (as daily does for
+// the fast terms), computed afresh every slowRestart blocks: the values
+// agree with the series summed (evalVSOP of slowTerms) to about 1e-15 of
+// each term's amplitude.
 func slowNodes(jde0 float64, n int) (vals [3][]float64) {
 	xs := &chebCos[1]
 	m := n * sunChebNodes

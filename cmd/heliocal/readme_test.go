@@ -38,14 +38,21 @@ func TestReadmeEventsExample(t *testing.T) {
 	}
 }
 
-// readmeJSON returns the README's lines that keep takes (trimmed, without a
-// trailing comma), each parsed as a JSON object.
-func readmeJSON(t *testing.T, keep func(line string) bool) []map[string]any {
+// readmeBytes is the repository's README.
+func readmeBytes(t *testing.T) []byte {
 	t.Helper()
 	readme, err := os.ReadFile("../../README.md")
 	if err != nil {
 		t.Fatal(err)
 	}
+	return readme
+}
+
+// readmeJSON returns the README's lines that keep takes (trimmed, without a
+// trailing comma), each parsed as a JSON object.
+func readmeJSON(t *testing.T, keep func(line string) bool) []map[string]any {
+	t.Helper()
+	readme := readmeBytes(t)
 	var out []map[string]any
 	for _, l := range strings.Split(string(readme), "\n") {
 		l = strings.TrimSuffix(strings.TrimSpace(l), ",")
@@ -133,10 +140,7 @@ func TestReadmeEclipseExample(t *testing.T) {
 // is what those feeds print: each line shown is an entry of one of them
 // on its date, every field equal, the instants within 5 ms.
 func TestReadmeFeedExample(t *testing.T) {
-	readme, err := os.ReadFile("../../README.md")
-	if err != nil {
-		t.Fatal(err)
-	}
+	readme := readmeBytes(t)
 	n := 0
 	for _, l := range strings.Split(string(readme), "\n") {
 		if !strings.HasPrefix(l, `{"kind": "`) || !strings.Contains(l, `"uid": "…"`) {
@@ -195,10 +199,7 @@ func TestReadmeFeedExample(t *testing.T) {
 // refraction moves this sunset by about 85 s, dropping the Sun's parallax
 // by about 12 s).
 func TestReadmeDayAcrossMidnight(t *testing.T) {
-	readme, err := os.ReadFile("../../README.md")
-	if err != nil {
-		t.Fatal(err)
-	}
+	readme := readmeBytes(t)
 	text := strings.Join(strings.Fields(string(readme)), " ")
 	const claim = "at 78.2° N, 15.6° E (sea level, Arctic/Longyearbyen) on 17 April 2027 the Sun rises at 02:14 and sets at 00:03 the next date, a day of 21 h 48 min (+43 min 30 s from the day before)"
 	if !strings.Contains(text, claim) {
@@ -300,10 +301,7 @@ func TestReadmeDayAcrossMidnight(t *testing.T) {
 
 // The README's list of the built-in demo names every site of the demo.
 func TestReadmeDemoSites(t *testing.T) {
-	readme, err := os.ReadFile("../../README.md")
-	if err != nil {
-		t.Fatal(err)
-	}
+	readme := readmeBytes(t)
 	text := string(readme)
 	start := strings.Index(text, "### The built-in demo")
 	if start < 0 {
@@ -326,10 +324,7 @@ func TestReadmeDemoSites(t *testing.T) {
 // day is about 90° − 69.65° − 23.44° = −3.1°: it does not rise (common
 // practice: noon altitude 90° − latitude + declination).
 func TestReadmePolarNightNote(t *testing.T) {
-	readme, err := os.ReadFile("../../README.md")
-	if err != nil {
-		t.Fatal(err)
-	}
+	readme := readmeBytes(t)
 	m := regexp.MustCompile("At 69\\.65° N on 21 December `--kinds sunrise` lists no\\s+event and `notes` says `(\\{[^`]*\\})`").FindSubmatch(readme)
 	if m == nil {
 		t.Fatal("README: the polar-night note is not where this test looks for it")

@@ -165,15 +165,16 @@ func loopbackOnly(raw string) error {
 	return nil
 }
 
-// newClient returns a client that keeps one connection per worker and
-// leaves gzip bodies compressed (as a calendar client caching them would).
-func newClient(conns int) *http.Client {
+// newClient returns a client that keeps its one connection and leaves gzip
+// bodies compressed (as a calendar client caching them would): the runs
+// themselves go over rawLoad's connections.
+func newClient() *http.Client {
 	tr := &http.Transport{
 		Proxy:               nil,
 		DialContext:         loopbackDialer,
-		MaxIdleConns:        conns,
-		MaxIdleConnsPerHost: conns,
-		MaxConnsPerHost:     conns,
+		MaxIdleConns:        1,
+		MaxIdleConnsPerHost: 1,
+		MaxConnsPerHost:     1,
 		DisableCompression:  true,
 		IdleConnTimeout:     30 * time.Second,
 	}
@@ -218,7 +219,7 @@ func startServer(ctx context.Context, cmdline, target string, wait time.Duration
 	}
 	u, _ := url.Parse(target)
 	health := u.Scheme + "://" + u.Host + "/healthz"
-	client := newClient(1)
+	client := newClient()
 	deadline := time.Now().Add(wait)
 	for {
 		req, _ := http.NewRequestWithContext(ctx, "GET", health, nil)
@@ -402,7 +403,7 @@ func cmp(a, b error) error {
 // measureFeed: one warm-up GET for the ETag, then a run of full GETs
 // (gzip accepted) and a run of conditional GETs.
 func measureFeed(ctx context.Context, c config) error {
-	client := newClient(1)
+	client := newClient()
 	req, _ := http.NewRequestWithContext(ctx, "GET", c.feed, nil)
 	req.Header.Set("Accept-Encoding", "gzip")
 	resp, err := client.Do(req)

@@ -25,6 +25,7 @@ package main
 
 import (
 	"bufio"
+	"cmp"
 	"context"
 	"errors"
 	"flag"
@@ -274,22 +275,12 @@ const slowest = 5
 // still preparing) and slow moments later in the run tell apart.
 func (r *result) slowestText() string {
 	s := slices.Clone(r.samples)
-	slices.SortStableFunc(s, func(a, b sample) int { return cmpDuration(b.took, a.took) })
+	slices.SortStableFunc(s, func(a, b sample) int { return cmp.Compare(b.took, a.took) })
 	var parts []string
 	for _, x := range s[:min(slowest, len(s))] {
 		parts = append(parts, fmt.Sprintf("#%d at %v: %v", x.i, x.sent.Sub(r.start).Round(time.Millisecond), x.took.Round(time.Microsecond)))
 	}
 	return strings.Join(parts, ", ")
-}
-
-func cmpDuration(a, b time.Duration) int {
-	switch {
-	case a < b:
-		return -1
-	case a > b:
-		return 1
-	}
-	return 0
 }
 
 func (r *result) print() {
@@ -388,12 +379,13 @@ func measure(name string, conns, n int, worker func(l *tally)) *result {
 		}
 		r.errors += l.errors
 		r.bytes += l.bytes
-		r.firstErr = cmp(r.firstErr, l.firstErr)
+		r.firstErr = firstError(r.firstErr, l.firstErr)
 	}
 	return r
 }
 
-func cmp(a, b error) error {
+// firstError is a, or b when a is nil.
+func firstError(a, b error) error {
 	if a != nil {
 		return a
 	}
@@ -453,7 +445,7 @@ func rawLoad(ctx context.Context, name string, u *url.URL, conns, n int, d time.
 		fail := func(err error) {
 			if ctx.Err() == nil {
 				l.errors++
-				l.firstErr = cmp(l.firstErr, err)
+				l.firstErr = firstError(l.firstErr, err)
 			}
 			if conn != nil {
 				conn.Close()

@@ -341,8 +341,7 @@ func pct(sorted []time.Duration, p int) time.Duration {
 
 // tally is what one connection of a run counted.
 type tally struct {
-	lat      []time.Duration
-	samples  []sample
+	samples  []sample // every request answered, in the order sent
 	statuses map[int]int
 	errors   int
 	firstErr error
@@ -361,7 +360,7 @@ func measure(name string, conns, n int, worker func(l *tally)) *result {
 	for w := range conns {
 		l := &locals[w]
 		l.statuses = map[int]int{}
-		l.lat = make([]time.Duration, 0, n/conns+1)
+		l.samples = make([]sample, 0, n/conns+1)
 		wg.Go(func() { worker(l) })
 	}
 	wg.Wait()
@@ -372,7 +371,9 @@ func measure(name string, conns, n int, worker func(l *tally)) *result {
 	r.clientCPU = selfCPU() - self0
 	r.serverRSS = processPeakRSS(serverPID)
 	for _, l := range locals {
-		r.latencies = append(r.latencies, l.lat...)
+		for _, x := range l.samples {
+			r.latencies = append(r.latencies, x.took)
+		}
 		r.samples = append(r.samples, l.samples...)
 		for k, v := range l.statuses {
 			r.statuses[k] += v
@@ -484,9 +485,7 @@ func rawLoad(ctx context.Context, name string, u *url.URL, conns, n int, d time.
 				fail(err)
 				continue
 			}
-			took := time.Since(t0)
-			l.lat = append(l.lat, took)
-			l.samples = append(l.samples, sample{i, t0, took})
+			l.samples = append(l.samples, sample{i, t0, time.Since(t0)})
 			l.statuses[resp.StatusCode]++
 			l.bytes += nb
 			if resp.Close {

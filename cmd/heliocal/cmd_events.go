@@ -234,11 +234,14 @@ func parseKinds(list string) ([]config.Kind, error) {
 				continue
 			}
 			if prev, dup := seen[m]; dup {
-				also := ""
-				if prev != k {
-					also = fmt.Sprintf(" (also in %q)", prev.String())
+				if prev == k { // the same kind, or group, twice
+					return nil, badInput("--kinds: %q: %q listed twice: give each kind once", list, k.String())
 				}
-				return nil, badInput("--kinds: %q: %q listed twice%s: give each kind once", list, m.String(), also)
+				group := prev // the group that gave m the other time
+				if prev == m {
+					group = k
+				}
+				return nil, badInput("--kinds: %q: %q listed twice (also in %q): give each kind once", list, m.String(), group.String())
 			}
 			seen[m] = k
 		}

@@ -196,6 +196,8 @@ func TestEventsBadInput(t *testing.T) {
 		{"kind", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "sunrize"}, "sunrize"},
 		{"kind twice", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "sunrise,sunset,sunrise"}, `--kinds: "sunrise,sunset,sunrise": "sunrise" listed twice`},
 		{"kind twice in a group", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "seasons,june-solstice"}, `"june-solstice" listed twice (also in "seasons")`},
+		{"kind twice, the group after", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "june-solstice,seasons"}, `"june-solstice" listed twice (also in "seasons")`},
+		{"group twice", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "seasons,seasons"}, `--kinds: "seasons,seasons": "seasons" listed twice: give each kind once`},
 		{"date", []string{"events", "--lat", "0", "--lon", "0", "--from", "2027-13-01"}, "--from: \"2027-13-01\""},
 		{"order", []string{"events", "--lat", "0", "--lon", "0", "--from", "2027-02-01", "--to", "2027-01-01"}, "--to"},
 		{"range", []string{"events", "--lat", "0", "--lon", "0", "--from", "1700-01-01", "--to", "1700-01-02"}, "1700"},

@@ -20,9 +20,12 @@ import (
 const (
 	maxNameRunes       = 80
 	maxSkylinePoints   = 72 // one every 5°
-	skylineDecimals    = 10 // azimuths and altitudes are rounded to 0.1°
 	skylineParamFormat = "azimuth:altitude points in degrees, comma-separated, azimuth from the north through the east, e.g. 0:2,90:8,180:1,270:4"
 )
+
+// tenth rounds a horizon's or skyline point's degrees to 0.1°, which is
+// how an ad-hoc query keeps them (the cache key and the feed's id).
+func tenth(deg float64) float64 { return math.Round(deg*10)/10 + 0 }
 
 // parseExtras reads name, horizon, alarm and lighting.
 func (q *AdhocQuery) parseExtras(get getter, lim *adhocLimits) error {
@@ -52,7 +55,7 @@ func (q *AdhocQuery) parseExtras(get getter, lim *adhocLimits) error {
 				return &QueryError{Param: ParamHorizon, Value: v,
 					Msg: fmt.Sprintf("must be within %g..%g degrees (the skyline's altitude; 0 for a flat horizon)", config.MinHorizon, config.MaxHorizon)}
 			}
-			q.Horizon = math.Round(h*10)/10 + 0
+			q.Horizon = tenth(h)
 		}
 	}
 	if v, ok := get(ParamAlarm); ok {
@@ -155,8 +158,8 @@ func (q *AdhocQuery) parseSkyline(v string) error {
 		az, err1 := strconv.ParseFloat(strings.TrimSpace(a), 64)
 		alt, err2 := strconv.ParseFloat(strings.TrimSpace(b), 64)
 		if ok && err1 == nil && err2 == nil {
-			items[i] = strconv.FormatFloat(math.Round(az*skylineDecimals)/skylineDecimals+0, 'f', -1, 64) + ":" +
-				strconv.FormatFloat(math.Round(alt*skylineDecimals)/skylineDecimals+0, 'f', -1, 64)
+			items[i] = strconv.FormatFloat(tenth(az), 'f', -1, 64) + ":" +
+				strconv.FormatFloat(tenth(alt), 'f', -1, 64)
 		}
 	}
 	pts, err := config.SkylineFromText(ParamHorizon, strings.Join(items, ","))

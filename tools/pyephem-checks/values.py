@@ -34,6 +34,8 @@ events at mid latitudes, within a few seconds where the Sun grazes the
 horizon (78.2 N, sunset near midnight: about 0.7 deg per hour).
 """
 
+import datetime
+
 import ephem
 
 SUN = ephem.Sun()
@@ -52,8 +54,8 @@ def observer(lat, lon, horizon, pressure=0.0, temp=10.0):
 
 def iso(d):
     """ephem.Date as ISO 8601 UTC to the millisecond."""
-    t = ephem.Date(d).datetime()
-    return t.strftime("%Y-%m-%dT%H:%M:%S.") + "%03dZ" % round(t.microsecond / 1000)
+    t = ephem.Date(d).datetime() + datetime.timedelta(microseconds=500)  # rounded, not truncated
+    return t.strftime("%Y-%m-%dT%H:%M:%S.") + "%03dZ" % (t.microsecond // 1000)
 
 
 def fmt_len(s):

@@ -162,10 +162,10 @@ func TestEventsAzimuth(t *testing.T) {
 	}
 	// In words, the nearest of the 16 compass points (22.5° each; common
 	// practice): north-east and north-west, in the table and in the
-	// calendar text. The sunrise, 04:53:49 CEST: PyEphem 4.1.4 (libastro),
-	// Observer(48.2 N, 16.4 E, 0 m), pressure 0, horizon −0.8333°,
-	// use_center (heliocal's sunrise: the upper limb with 34′ of refraction),
-	// computed once and recorded here.
+	// calendar text. The sunrise, 04:53:49 CEST: PyEphem 4.1.4 (libastro)
+	// gives 02:53:48.932 UT with Observer(48.2 N, 16.4 E, 0 m), pressure 0,
+	// horizon −0.8333°, use_center (heliocal's sunrise: the upper limb with
+	// 34′ of refraction); tools/pyephem-checks/values.py prints it.
 	code, out, errOut = runCLI(t, args...)
 	if code != 0 || !strings.Contains(out, "azimuth 52.2° (north-east)") || !strings.Contains(out, "azimuth 307.8° (north-west)") {
 		t.Errorf("table (exit %d, %s):\n%s", code, errOut, out)

@@ -10,7 +10,8 @@ The tests do not run this script: the values it prints are recorded in them
 with this script's name beside each one (cmd/heliocal/readme_test.go
 TestReadmeDayAcrossMidnight; feed/change_test.go
 TestSummaryShowsSunsetAfterMidnight and TestProfilesDayLengthIsTheSummarys;
-astro/atmosphere_test.go TestRefractionScaling).
+astro/atmosphere_test.go TestRefractionScaling; cmd/heliocal/main_test.go
+TestEventsAzimuth).
 
 Definitions, matched to heliocal's:
   * sunrise/sunset: the Sun's centre at -0.8333 deg (upper limb 16' plus 34'
@@ -143,8 +144,18 @@ def refraction_scaled():
             name, p, t, (n0[0] - nr) * 86400, (ns - n0[1]) * 86400, ((ns - nr) - (n0[1] - n0[0])) * 86400))
 
 
+def solstice_sunrise():
+    print("# 48.2 N, 16.4 E, sea level, 2027-06-21 (UT; CEST = UT + 2 h)")
+    o = observer(48.2, 16.4, -0.8333)
+    o.date = "2027/6/21"
+    r = o.next_rising(SUN, use_center=True)
+    cest = ephem.Date(r + 2 * HOUR).datetime() + datetime.timedelta(microseconds=500000)
+    print("sunrise %s, %s CEST to the second" % (iso(r), cest.strftime("%H:%M:%S")))
+
+
 if __name__ == "__main__":
     print("PyEphem %s (libastro)" % ephem.__version__)
     day_across_midnight()
     end_of_midnight_sun()
     refraction_scaled()
+    solstice_sunrise()

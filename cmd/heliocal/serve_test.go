@@ -76,6 +76,13 @@ func TestServeDemo(t *testing.T) {
 		t.Error(err)
 	}
 
+	// It built one ad-hoc feed when it started, before any request for one
+	// (README: "a server builds one ad-hoc feed at start so that the first
+	// requests find the ephemeris ready").
+	if _, m := get("/metrics"); !strings.Contains(m, "heliocal_adhoc_build_duration_seconds_count 1\n") {
+		t.Errorf("not one ad-hoc build at start:\n%s", m)
+	}
+
 	resp, body := get("/feeds/fernhollow-sun.ics")
 	if resp.StatusCode != http.StatusOK || resp.Header.Get("Content-Type") != "text/calendar; charset=utf-8" {
 		t.Errorf("feed: %d %q", resp.StatusCode, resp.Header.Get("Content-Type"))

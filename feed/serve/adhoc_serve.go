@@ -183,7 +183,7 @@ func (s *adhocSink) asset(name string, mod time.Time) *asset {
 		return newAdhocAsset(name, *s.head, mod)
 	}
 	s.zw.Close()
-	if s.gz.Len() >= s.n*9/10 { // hardly compressible: kept as it is, as newAdhocAsset would
+	if !gzipSaves(s.gz.Len(), s.n) { // hardly compressible: kept as it is, as newAdhocAsset would
 		return adhocAssetOf(name, gunzip(s.gz.Bytes()), nil, mod)
 	}
 	return adhocAssetOf(name, nil, bytes.Clone(s.gz.Bytes()), mod)

@@ -191,11 +191,15 @@ func compressWith(pool *sync.Pool, data []byte) []byte {
 	zw.Reset(buf)
 	zw.Write(data) // a bytes.Buffer never fails
 	zw.Close()
-	if buf.Len() >= len(data)*9/10 {
+	if !gzipSaves(buf.Len(), len(data)) {
 		return nil
 	}
 	return bytes.Clone(buf.Bytes())
 }
+
+// gzipSaves reports whether n bytes compressed to gz bytes are worth serving
+// compressed: gzip saves at least a tenth.
+func gzipSaves(gz, n int) bool { return gz < n*9/10 }
 
 // contentTypeFor fixes the types heliocal serves whatever the bundle says,
 // so a calendar client always gets text/calendar with its charset.

@@ -60,12 +60,13 @@ func (s *Server) serveAdhoc(w http.ResponseWriter, r *http.Request) {
 const warmQuery = "lat=0&lon=0&tz=UTC"
 
 // WarmAdhoc builds the ad-hoc feed of warmQuery, as a request for it would
-// (it is cached until the next refresh empties the cache), so that the
-// first requests after a start find ready what every ad-hoc feed shares:
-// the ephemeris of today's default window (the same for every place whose
+// (the feed itself is cached only until a refresh empties the cache: at a
+// start, the first build of the feeds right after), so that the first
+// requests after a start find ready what every ad-hoc feed shares: the
+// ephemeris of today's default window (the same for every place whose
 // today is UTC's), the builders' and compressors' working memory, code
-// already run. The first few requests of
-// a fresh server otherwise took two to seven times as long as the next.
+// already run. The first few requests of a fresh server otherwise took two
+// to seven times as long as the next.
 // It does nothing without ad-hoc feeds and logs a failure.
 func (s *Server) WarmAdhoc(ctx context.Context) {
 	if s.opts.Adhoc == nil {

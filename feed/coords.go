@@ -1,6 +1,7 @@
 package feed
 
 import (
+	"fmt"
 	"math"
 	"strconv"
 )
@@ -21,4 +22,11 @@ func Coords(lat, lon float64, decimals int) string {
 	b = append(append(b, "°"...), ns...)
 	b = strconv.AppendFloat(append(b, ", "...), math.Abs(lon), 'f', decimals, 64)
 	return string(append(append(b, "°"...), ew...))
+}
+
+// CoordsName is the name of a place given by its coordinates alone (`events
+// --lat --lon`, ad-hoc feeds without a name): "-45.0000, -72.0000". Texts
+// that name a site recognise it and write the coordinates only once.
+func CoordsName(lat, lon float64) string {
+	return fmt.Sprintf("%.4f, %.4f", lat, lon)
 }

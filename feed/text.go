@@ -308,7 +308,7 @@ func refractionText(o astro.Observer) string {
 // written once: "45.000° S, 72.000° W".
 func where(s *config.Site) string {
 	c := Coords(s.Latitude, s.Longitude, 3)
-	if s.Name == "" || s.Name == fmt.Sprintf("%.4f, %.4f", s.Latitude, s.Longitude) {
+	if s.Name == "" || s.Name == CoordsName(s.Latitude, s.Longitude) {
 		return c
 	}
 	return s.Name + " (" + c + ")"

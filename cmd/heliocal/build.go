@@ -350,7 +350,7 @@ func adhocCalendarFrom(current func() adhocSettings) serve.PreviewFunc {
 		last := first.AddDate(0, 0, q.Days-1)
 		site := &config.Site{
 			ID:        q.ID(),
-			Name:      fmt.Sprintf("%.4f, %.4f", q.Latitude, q.Longitude),
+			Name:      feed.CoordsName(q.Latitude, q.Longitude),
 			Latitude:  q.Latitude,
 			Longitude: q.Longitude,
 			Elevation: q.Elevation,

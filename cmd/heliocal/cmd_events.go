@@ -168,7 +168,7 @@ func eventsPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 	} else if err := s.TimeZone.UnmarshalText([]byte(o.tz)); err != nil {
 		return nil, badInput("--tz: %w", err)
 	}
-	s.Name = fmt.Sprintf("%.4f, %.4f", o.lat, o.lon)
+	s.Name = feed.CoordsName(o.lat, o.lon)
 	return s, nil
 }
 

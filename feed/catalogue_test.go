@@ -1005,9 +1005,10 @@ func TestPolarNightOrBehindSkyline(t *testing.T) {
 }
 
 // A band the Sun passes through once a day, through noon, is named so
-// ("Sun between +15° and +89° (through midday)"), not "all day, low Sun",
-// which stays golden hour's name for a winter Sun that never climbs out of
-// it (at 69.65° N on 20 January the noon Sun is about 1° high).
+// ("Sun between +15° and +89° (through midday)"), not "morning and evening
+// in one", golden hour's name for the span of a winter Sun that never
+// climbs out of it (at 69.65° N on 20 January the noon Sun is about 1°
+// high).
 func TestBandThroughMidday(t *testing.T) {
 	s := site(t, "havana", 23.13, -82.38, "America/Havana")
 	sk := sky(t, "2027-03-14", "2027-03-14")
@@ -1018,7 +1019,7 @@ func TestBandThroughMidday(t *testing.T) {
 	n := site(t, "tromso", 69.65, 18.96, "Europe/Oslo")
 	sk = sky(t, "2027-01-20", "2027-01-20")
 	es, err = sk.Entries(context.Background(), n, "f", []config.KindSpec{{Kind: mustKinds(t, "golden-hour")[0]}}, date("2027-01-20"), date("2027-01-20"))
-	if err != nil || len(es) != 1 || es[0].Title != "Golden hour (all day, low Sun)" {
+	if err != nil || len(es) != 1 || es[0].Title != "Golden hour (morning and evening in one)" {
 		t.Fatalf("%+v, %v", es, err)
 	}
 }

@@ -30,7 +30,7 @@ type Event struct {
 	Part string
 
 	// Values quoted in descriptions; zero when they do not apply.
-	Altitude     float64       // solar noon: the Sun's altitude, degrees
+	Altitude     float64       // solar noon: the Sun's altitude, degrees; a band's span of part "all-day" ("night"): the Sun's highest (lowest) altitude in it
 	Distance     float64       // perihelion/aphelion: Earth–Sun distance, au
 	DayLength    time.Duration // sunrise/sunset/photoperiod: time the Sun is up on Date
 	DayChange    time.Duration // DayLength minus the previous date's
@@ -52,6 +52,18 @@ type Event struct {
 	// eclipse with the body over the skyline, none when it stays behind it.
 	Skyline bool
 	Visible []astro.Span
+}
+
+// MergedSpan reports whether e is a golden or blue hour's (or a sun band's)
+// span in which a morning and an evening meet, part "all-day" (the Sun
+// stays under the band's upper bound) or "night" (over its lower bound):
+// its Altitude is then the Sun's highest or lowest in it.
+func MergedSpan(e Event) bool {
+	switch e.Kind.Name {
+	case "golden-hour", "blue-hour", config.KindSunBand:
+		return e.Part == "all-day" || e.Part == "night"
+	}
+	return false
 }
 
 // EclipseFacts returns the eclipse circumstances of an event, nil for
@@ -1284,6 +1296,7 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 	n0 := len(c.events) // this kind's spans start here
 	var start time.Time
 	var entered mark
+	var before []Event                                   // spans that start before the first date
 	seen := make([]bool, daysBetween(c.first, c.last)+1) // by date from first: a span starts on it
 	for _, m := range marks {
 		entering := (!m.high && m.dir == astro.Rising) || (m.high && m.dir == astro.Setting)
@@ -1306,8 +1319,22 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 				part = "all-day"
 			}
 			d := c.zone().date(start)
+			if d.Before(c.first) {
+				// not listed, but it may run into the first date
+				before = append(before, Event{Start: start, End: m.t})
+			}
 			if c.inRange(d) {
-				c.events = append(c.events, Event{Kind: k, Start: start, End: m.t, Date: d, Part: part, Low: low, High: high})
+				e := Event{Kind: k, Start: start, End: m.t, Date: d, Part: part, Low: low, High: high}
+				if part == "all-day" || part == "night" {
+					// one span where a morning and an evening meet: its
+					// text gives the Sun's highest (lowest) altitude in it
+					h, err := c.sunExtreme(start, m.t, part == "all-day")
+					if err != nil {
+						return err
+					}
+					e.Altitude = h
+				}
+				c.events = append(c.events, e)
 				seen[daysBetween(c.first, d)] = true
 			}
 			start = time.Time{}
@@ -1325,13 +1352,60 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 			return err
 		}
 		switch {
-		case h > high && c.noSpanCovers(d, c.events[n0:]):
+		case h > high && c.noSpanCovers(d, c.events[n0:]) && c.noSpanCovers(d, before):
 			c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.AlwaysAbove, Family: k.String()})
-		case h < low && c.noSpanCovers(d, c.events[n0:]):
+		case h < low && c.noSpanCovers(d, c.events[n0:]) && c.noSpanCovers(d, before):
 			c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.AlwaysBelow, Family: k.String()})
 		}
 	}
 	return nil
+}
+
+// sunExtreme returns the highest (high) or lowest geometric altitude of the
+// Sun's centre between from and to, degrees: a band's span that is entered
+// and left through the same bound has one such extreme, found by
+// golden-section search to well under a second (at an extreme the altitude
+// changes by less than 0.001° in a minute).
+func (c *collector) sunExtreme(from, to time.Time, high bool) (float64, error) {
+	o := c.p.Observer
+	alt := func(t float64) (float64, error) {
+		h, err := c.sky.eph.SunAltitude(o, from.Add(time.Duration(t*float64(time.Second))))
+		if !high {
+			h = -h
+		}
+		return h, err
+	}
+	const g = 0.6180339887498949 // (√5 − 1) / 2
+	a, b := 0.0, to.Sub(from).Seconds()
+	x1, x2 := b-g*(b-a), a+g*(b-a)
+	f1, err := alt(x1)
+	if err != nil {
+		return 0, err
+	}
+	f2, err := alt(x2)
+	if err != nil {
+		return 0, err
+	}
+	for b-a > 1 {
+		if f1 > f2 {
+			b, x2, f2 = x2, x1, f1
+			x1 = b - g*(b-a)
+			if f1, err = alt(x1); err != nil {
+				return 0, err
+			}
+		} else {
+			a, x1, f1 = x1, x2, f2
+			x2 = a + g*(b-a)
+			if f2, err = alt(x2); err != nil {
+				return 0, err
+			}
+		}
+	}
+	h := max(f1, f2)
+	if !high {
+		h = -h
+	}
+	return h, nil
 }
 
 // noSpanCovers reports whether none of the spans overlaps the local date d.

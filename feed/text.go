@@ -287,11 +287,15 @@ type siteInfo struct {
 	refraction string // "standard refraction" or "refraction for 1030 hPa and −20 °C"
 	zone       *zoneCache
 	band       *bandText // the band kind last written
+	flatRise   float64   // the Sun's centre rises over a flat horizon through this geometric altitude
 }
 
 // newSiteInfo returns the siteInfo of s, for one goroutine (its zone cache).
 func newSiteInfo(s *config.Site) *siteInfo {
-	return &siteInfo{Site: s, where: where(s), refraction: refractionText(PlaceOf(s).Observer), zone: newZoneCache(s.TimeZone.Location)}
+	o := PlaceOf(s).Observer
+	flat := o
+	flat.Horizon = 0 // as for polar night (collector.upAtNoon): a skyline hides the Sun, it does not set it
+	return &siteInfo{Site: s, where: where(s), refraction: refractionText(o), zone: newZoneCache(s.TimeZone.Location), flatRise: flat.RiseSetAltitude()}
 }
 
 // refractionText names the refraction rise and set are computed with.
@@ -664,17 +668,52 @@ func appendDaily(b []byte, s *siteInfo, e Event) (_ []byte, title string, ok boo
 		return b, title, true
 	case "golden-hour", "blue-hour", config.KindSunBand:
 		bt := s.bandText(e)
-		title = bt.title(e.Part)
+		// a span of a band that reaches over the horizon, entered and left
+		// through its lower bound by a Sun that does not rise (polar
+		// night), is twilight glow: no Sun to look at
+		part, glow := e.Part, e.Part == "all-day" && e.Altitude <= s.flatRise && e.High > s.flatRise
+		if glow {
+			part = partGlow
+		}
+		title = bt.title(part)
 		z := s.zone
 		b = z.appendDayMark(z.appendClock(append(append(b, title...), " from "...), e.Start), e.Start, e.Date)
 		b = z.appendDayMark(z.appendClock(append(b, " to "...), e.End), e.End, e.Date)
-		b = append(appendHM(append(b, " ("...), span(e.Start, e.End)), ")."...)
-		if bt.eyes {
+		b = append(appendHM(append(b, " ("...), span(e.Start, e.End)), ')')
+		if e.Kind.Name != config.KindSunBand {
+			b = appendMerged(b, e, glow)
+		}
+		b = append(b, '.')
+		if bt.eyes && !glow {
 			b = append(append(b, '\n'), cautionEyes...)
 		}
 		return b, title, true
 	}
 	return b, "", false
+}
+
+// partGlow stands, in bandText.title, for the part "all-day" of a span in
+// which the Sun does not rise.
+const partGlow = "glow"
+
+// appendMerged appends to b, after a golden or blue hour's times, why a
+// span of part "all-day" or "night" is one span, with the Sun's highest
+// (lowest) altitude in it: the morning and evening spans meet because the
+// Sun stays under the band's upper bound all day (over its lower bound all
+// night); glow says that the Sun does not rise in the span.
+func appendMerged(b []byte, e Event, glow bool) []byte {
+	switch {
+	case glow:
+		b = append(b, ": the Sun does not rise (its centre at most "...)
+		b = append(append(b, degrees(e.Altitude)...), "), the light is twilight glow and the morning and evening spans meet"...)
+	case e.Part == "all-day":
+		b = append(append(b, ": the Sun's centre stays below "...), signedDegrees(e.High)...)
+		b = append(append(append(b, " (at most "...), degrees(e.Altitude)...), "), so the morning and evening spans meet"...)
+	case e.Part == "night":
+		b = append(append(b, ": the Sun's centre stays above "...), signedDegrees(e.Low)...)
+		b = append(append(append(b, " (at least "...), degrees(e.Altitude)...), "), so the evening and morning spans meet"...)
+	}
+	return b
 }
 
 // bandText is the text of a band kind's spans (golden hour, blue hour, a
@@ -710,8 +749,11 @@ func (bt *bandText) title(p string) string {
 		}
 	}
 	part := partName(p)
-	if bt.name == config.KindSunBand && p == "all-day" { // one span through noon: a high band's usual day, not a low Sun
+	switch {
+	case bt.name == config.KindSunBand && (p == "all-day" || p == partGlow): // one span through noon: a high band's usual day, not a low Sun
 		part = "through midday"
+	case p == partGlow:
+		part = "twilight glow, Sun below the horizon"
 	}
 	t := bt.base + " (" + part + ")"
 	bt.parts, bt.titles = append(bt.parts, p), append(bt.titles, t)
@@ -804,7 +846,7 @@ var crossQuarterBetween = map[string]string{
 func partName(p string) string {
 	switch p {
 	case "all-day":
-		return "all day, low Sun"
+		return "morning and evening in one"
 	case "night":
 		return "around midnight"
 	}

@@ -433,11 +433,11 @@ func toJSONEvent(e feed.Event) jsonEvent {
 	if !e.End.IsZero() {
 		j.End = utcStamp(e.End)
 	}
-	switch e.Kind.Name {
-	case "solar-noon", "moon-transit":
+	switch {
+	case e.Kind.Name == "solar-noon" || e.Kind.Name == "moon-transit" || feed.MergedSpan(e):
 		a := math.Round(e.Altitude*1e4) / 1e4
 		j.Altitude = &a
-	case "perihelion", "aphelion":
+	case e.Kind.Name == "perihelion" || e.Kind.Name == "aphelion":
 		r := e.Distance
 		j.Distance = &r
 	}
@@ -542,7 +542,12 @@ func details(e *feed.Event, loc *time.Location) string {
 	if !e.End.IsZero() {
 		parts = append(parts, fmt.Sprintf("until %s%s (%s)", clock(e.End, loc), feed.DayMark(e.End, e.Date, loc), feed.Length(feed.ToSecond(e.End).Sub(feed.ToSecond(e.Start)), time.Minute)))
 	}
-	if e.Part != "" {
+	switch {
+	case feed.MergedSpan(*e) && e.Part == "night":
+		parts = append(parts, fmt.Sprintf("evening and morning in one, Sun at least %.2f°", e.Altitude))
+	case feed.MergedSpan(*e):
+		parts = append(parts, fmt.Sprintf("morning and evening in one, Sun at most %.2f°", e.Altitude))
+	case e.Part != "":
 		parts = append(parts, e.Part)
 	}
 	if e.Direction != 0 && (e.Kind.Name == "sun-altitude" || e.Kind.Name == "photoperiod" || e.Kind.Name == "noon-clear") {

@@ -390,6 +390,9 @@ func plainCSVRow(e *feed.Event, loc *time.Location) []string {
 	row[csvCol.direction] = direction(*e)
 	row[csvCol.part] = e.Part
 	rounded := func(x float64, digits int) string { return string(appendRounded(nil, x, digits)) }
+	if feed.MergedSpan(*e) {
+		row[csvCol.altitude] = rounded(e.Altitude, 4)
+	}
 	switch e.Kind.Name {
 	case "solar-noon":
 		row[csvCol.altitude] = rounded(e.Altitude, 4)

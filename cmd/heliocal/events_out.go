@@ -198,7 +198,7 @@ func (j *jsonSink) event(e *feed.Event) {
 		b = appendJSONString(b, e.Part)
 	}
 	switch {
-	case k.noon:
+	case k.noon || feed.MergedSpan(*e):
 		b = append(b, ",\n      \"altitude_deg\": "...)
 		b = appendRounded(b, e.Altitude, 4)
 	case k.rise:
@@ -269,8 +269,9 @@ func (j *jsonSink) follow(i, dir int) {
 
 // plainJSONKinds are the kinds whose JSON event.event writes itself, with
 // the fields toJSONEvent gives them: kind, start, end, direction, date,
-// part, and altitude_deg (solar noon) or day_length_s and azimuth_deg
-// (sunrise, sunset).
+// part, and altitude_deg (solar noon; the Sun's highest or lowest in a
+// golden or blue hour's span of part "all-day" or "night") or day_length_s
+// and azimuth_deg (sunrise, sunset).
 var plainJSONKinds = map[string]bool{
 	"sunrise": true, "sunset": true, "solar-noon": true, "civil-dawn": true, "civil-dusk": true,
 	"nautical-dawn": true, "nautical-dusk": true, "astronomical-dawn": true, "astronomical-dusk": true,

@@ -3,6 +3,7 @@ package feed
 import (
 	"context"
 	"regexp"
+	"slices"
 	"strings"
 	"testing"
 	"time"
@@ -312,17 +313,108 @@ func TestWhereNamesCoordinatesOnce(t *testing.T) {
 	}
 }
 
-// A note of a date without a Moon transit names the place and the date of
-// the missing transit before the reason, not after it ("… about 50
-// minutes later each day at <site> on <date>" read as if the reason were
-// of that place and date). The Moon transits about 50 minutes later each
-// day on average (24 h 50 min, common knowledge), so about once a month a
-// date has none.
+// A note of a date without a Moon transit gives the reason, not the site
+// and the date (the entry's LOCATION and date carry them). The Moon
+// transits about 50 minutes later each day on average (24 h 50 min, common
+// knowledge), so about once a month a date has none.
 func TestMoonTransitNoteReads(t *testing.T) {
 	s := site(t, "Cairnmoor", 39.08, -105.42, "America/Denver")
 	title, desc := describeMoonNote(newSiteInfo(s), Note{Kind: mustKinds(t, "moon-transit")[0], Date: date("2026-12-23")})
 	if title != "No Moon transit today: the Moon crosses the meridian about 50 minutes later each day" ||
-		desc != "No Moon transit at Cairnmoor (39.080° N, 105.420° W) on Wednesday 23 December 2026: the Moon crosses the meridian about 50 minutes later each day." {
+		desc != "No Moon transit on this date: the Moon crosses the meridian about 50 minutes later each day." {
 		t.Errorf("title %q\ndescription %q", title, desc)
+	}
+}
+
+// The Moon's kinds and the notes of dates without an event are written as
+// the Sun's kinds are: what a kind means once in the calendar's
+// description, and on each entry only its own numbers (time, direction,
+// illumination, altitude, length); no entry or note names the site, its
+// coordinates or its date (LOCATION, GEO and DTSTART carry them). At 78.2° N
+// in November the Sun does not rise (polar night, common knowledge of the
+// place), so the Sun's kinds give notes there.
+func TestMoonMeaningsAndNotesOncePerCalendar(t *testing.T) {
+	for _, s := range []*config.Site{
+		site(t, "Cairnmoor Observatory", 39.08, -105.42, "America/Denver"),
+		site(t, "Skarvlia Field Station", 78.2, 15.6, "Arctic/Longyearbyen"),
+	} {
+		var specs []config.KindSpec
+		for _, k := range mustKinds(t, "moonrise", "moonset", "moon-phases", "moon-transit", "dark-window", "sunrise", "golden-hour", "civil-dawn") {
+			specs = append(specs, config.KindSpec{Kind: k})
+		}
+		specs[4].MaxIllumination = 0.25
+		sk := sky(t, "2026-11-01", "2026-11-30")
+		cal, err := sk.Calendar(context.Background(), s, &config.Feed{ID: "f", Kinds: specs}, date("2026-11-01"), date("2026-11-30"), Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		meanings := kindMeanings(s, specs)
+		for _, want := range []string{
+			"Moonrise: the Moon's upper limb appears on the horizon (standard refraction).",
+			"Moonset: the Moon's upper limb disappears below the horizon (standard refraction).",
+			"Full moon: the Moon is opposite the Sun and fully lit;",
+			"Moon highest: the Moon crosses the meridian, its highest of the day",
+			"Dark sky: the Sun is more than 18° below the horizon and the Moon is below the horizon or less than 25 % lit.",
+			azimuthMeaning,
+		} {
+			if !slices.ContainsFunc(meanings, func(m string) bool { return strings.HasPrefix(m, want) }) {
+				t.Errorf("%s: no meaning %q in\n%s", s.ID, want, strings.Join(meanings, "\n"))
+			}
+		}
+		for _, m := range meanings {
+			if n := strings.Count(cal.Description, m); n != 1 {
+				t.Errorf("%s: %q %d times in the calendar's description", s.ID, m, n)
+			}
+		}
+		coords := Coords(s.Latitude, s.Longitude, 3)
+		own := map[string]*regexp.Regexp{ // each Moon entry's own numbers
+			"moonrise":     regexp.MustCompile(`^Moonrise at \d\d:\d\d:\d\d \S+, azimuth \d+° \([a-z-]+\); wa(x|n)ing, \d+ % lit\.$`),
+			"moonset":      regexp.MustCompile(`^Moonset at \d\d:\d\d:\d\d \S+, azimuth \d+° \([a-z-]+\); wa(x|n)ing, \d+ % lit\.$`),
+			"moon-transit": regexp.MustCompile(`^Moon highest at \d\d:\d\d:\d\d \S+, at −?\d+\.\d° altitude(, below the horizon)? \(wa(x|n)ing, \d+ % lit\)\.$`),
+			"moon-phases":  regexp.MustCompile(`^(New moon|First quarter|Full moon|Last quarter) at \d\d:\d\d:\d\d \S+ \(2026-11-\d\d \d\d:\d\d:\d\d UTC\)\.$`),
+			"dark-window":  regexp.MustCompile(`^Dark sky on the night of [0-9–]+ (November–1 December|November) 2026 from \d\d:\d\d:\d\d \S+( \+1 day)? to \d\d:\d\d:\d\d \S+( \+1 day)? \((\d+ h )?\d+ min\)\.$`),
+		}
+		notes := 0
+		for _, e := range cal.Entries {
+			for _, w := range append(meanings, "upper limb", s.Name, coords, "Caution:", "November 2026 ", "day 2") {
+				if strings.Contains(e.Description, w) && !(e.Kind == "dark-window" && w == "November 2026 ") {
+					t.Errorf("%s: %s entry %q repeats %q:\n%s", s.ID, e.Kind, e.Title, w, e.Description)
+				}
+			}
+			for _, day := range []string{"Monday", "Tuesday", "Wednesday", "Thursday", "Friday", "Saturday", "Sunday"} {
+				if strings.Contains(e.Description, day) {
+					t.Errorf("%s: %s entry names its date: %q", s.ID, e.Kind, e.Description)
+				}
+			}
+			if e.Facts.Note {
+				notes++
+				continue
+			}
+			if re, ok := own[e.Kind]; ok && !re.MatchString(e.Description) {
+				t.Errorf("%s: %s entry %q, want it to match %s", s.ID, e.Kind, e.Description, re)
+			}
+		}
+		if notes == 0 {
+			t.Errorf("%s: no note in November 2026", s.ID)
+		}
+	}
+	// the polar night's notes, as a reader sees them
+	s := site(t, "Skarvlia Field Station", 78.2, 15.6, "Arctic/Longyearbyen")
+	sk := sky(t, "2026-11-10", "2026-11-10")
+	es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{{Kind: mustKinds(t, "sunrise")[0]}, {Kind: mustKinds(t, "golden-hour")[0]}}, date("2026-11-10"), date("2026-11-10"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	got := map[string]string{}
+	for _, e := range es {
+		got[e.Title] = e.Description
+	}
+	for title, desc := range map[string]string{
+		"Polar night: the Sun does not rise today":     "The Sun stays below the horizon all day.",
+		"No golden hour today: the Sun stays below it": "No golden hour today: the Sun stays below it.",
+	} {
+		if got[title] != desc {
+			t.Errorf("10 November 2026 at 78.2° N: %q reads %q, want %q (all: %v)", title, got[title], desc, got)
+		}
 	}
 }

@@ -652,15 +652,14 @@ func describeLightingNote(s *siteInfo, n Note, last time.Time) (string, string) 
 			need = "less than 1 min"
 		}
 		title := "Lamps not scheduled: " + need + " needed, " + n.Why
-		return title, title + ".\nThe target of " + target + " is not reached on " + n.Date.Format("Monday 2 January 2006") +
-			" at " + s.where + ": the natural day is " + hm(n.DayLength) + "."
+		return title, title + ".\nThe target of " + target + " is not reached on this date: the natural day is " + hm(n.DayLength) + "."
 	}
 	if n.Until.IsZero() {
 		title := fmt.Sprintf("No lamps needed through %s: the natural day is ≥ %s", last.Format("2 Jan"), target)
-		return title, fmt.Sprintf("%s at %s, from %s to the end of this calendar (%s).", title, s.where,
+		return title, fmt.Sprintf("%s, from %s to the end of this calendar (%s).", title,
 			n.Date.Format("Monday 2 January 2006"), last.Format("2 January 2006"))
 	}
 	title := fmt.Sprintf("No lamps needed until %s: the natural day is ≥ %s", n.Until.Format("2 Jan"), target)
-	return title, fmt.Sprintf("%s at %s, from %s; lamps are needed again from %s.", title, s.where,
+	return title, fmt.Sprintf("%s, from %s; lamps are needed again from %s.", title,
 		n.Date.Format("Monday 2 January 2006"), n.Until.Format("Monday 2 January 2006"))
 }

@@ -226,20 +226,53 @@ func waxing(e Event) string {
 	return "waning"
 }
 
-// moonHorizonMeaning is the definition line of moonrise and moonset; %s is
-// the refraction used.
-var moonHorizonMeaning = map[string]string{
-	"moonrise": "The Moon's upper limb appears on the horizon as seen from the site (%s).",
-	"moonset":  "The Moon's upper limb disappears below the horizon as seen from the site (%s).",
+// moonMeaning is the meaning of the entries of a Moon kind at site s (one
+// line of the calendar's description, kindMeanings), "" for other kinds;
+// maxLit is a dark window's largest illuminated fraction still dark.
+func moonMeaning(s *config.Site, kind string, maxLit float64) string {
+	name := plainNames[kind]
+	switch kind {
+	case "new-moon":
+		return name + ": the Moon passes between the Earth and the Sun and is not seen; the darkest nights of the month are around now."
+	case "first-quarter":
+		return name + ": the Moon is 90° east of the Sun, half lit, high in the evening sky and setting around midnight."
+	case "full-moon":
+		return name + ": the Moon is opposite the Sun and fully lit; away from the polar regions it rises around sunset and sets around sunrise."
+	case "last-quarter":
+		return name + ": the Moon is 90° west of the Sun, half lit, rising around midnight and high in the morning sky."
+	case "moonrise", "moonset":
+		refr := refractionText(PlaceOf(s).Observer)
+		verb := map[string]string{"moonrise": "appears on the horizon", "moonset": "disappears below the horizon"}[kind]
+		if len(s.Skyline) > 0 {
+			verb, refr = "first appears over the site's skyline", refr+" for the skyline's altitude"
+			if kind == "moonset" {
+				verb = "last disappears behind the site's skyline"
+			}
+		}
+		return name + ": the Moon's upper limb " + verb + " (" + refr + ")."
+	case "moon-transit":
+		return name + ": the Moon crosses the meridian, its highest of the day (below the horizon on some dates)."
+	case "dark-window":
+		down := "below the horizon"
+		if len(s.Skyline) > 0 {
+			down = "behind the site's skyline"
+		}
+		m := name + ": the Sun is more than 18° below the horizon and the Moon is " + down
+		if maxLit > 0 {
+			m += " or less than " + percent(maxLit) + " lit"
+		}
+		m += "."
+		if len(s.Skyline) > 0 {
+			m += " The Sun's 18° are counted from the flat horizon, not the skyline: the glow of twilight lights the sky over the hills as well."
+		}
+		return m
+	}
+	return ""
 }
 
-// moonSkylineMeaning is moonHorizonMeaning for a site with a skyline.
-var moonSkylineMeaning = map[string]string{
-	"moonrise": "The Moon's upper limb first appears over the site's skyline (%s for the skyline's altitude).",
-	"moonset":  "The Moon's upper limb last disappears behind the site's skyline (%s for the skyline's altitude).",
-}
-
-// describeMoon gives the title and description of a Moon event.
+// describeMoon gives the title and description of a Moon event: its own
+// times and numbers; what the kind means is in the calendar's description
+// (moonMeaning), as is the site (LOCATION and GEO).
 func describeMoon(s *siteInfo, e Event) (string, string) {
 	loc := s.TimeZone.Location
 	at := localClock(e.Start, loc)
@@ -247,25 +280,19 @@ func describeMoon(s *siteInfo, e Event) (string, string) {
 	var b strings.Builder
 	switch e.Kind.Name {
 	case "new-moon", "first-quarter", "full-moon", "last-quarter":
-		meaning := map[string]string{
-			"new-moon":      "the Moon passes between the Earth and the Sun and is not seen; the darkest nights of the month are around now",
-			"first-quarter": "the Moon is 90° east of the Sun, half lit, high in the evening sky and setting around midnight",
-			"full-moon":     "the Moon is opposite the Sun and fully lit; away from the polar regions it rises around sunset and sets around sunrise",
-			"last-quarter":  "the Moon is 90° west of the Sun, half lit, rising around midnight and high in the morning sky",
-		}[e.Kind.Name]
-		fmt.Fprintf(&b, "%s at %s (%s UTC): %s.", title, at, ToSecond(e.Start).UTC().Format("2006-01-02 15:04:05"), meaning)
+		fmt.Fprintf(&b, "%s at %s (%s UTC).", title, at, ToSecond(e.Start).UTC().Format("2006-01-02 15:04:05"))
 		b.WriteString(FutureNote(e.Start))
 	case "moonrise", "moonset":
 		title = fmt.Sprintf("%s (%s, %s lit)", title, waxing(e), percent(e.Illuminated))
-		meaning := moonHorizonMeaning[e.Kind.Name]
+		over := ""
 		if len(s.Skyline) > 0 {
-			meaning = moonSkylineMeaning[e.Kind.Name]
+			over = " over the skyline"
 		}
-		fmt.Fprintf(&b, "%s at %s, %s: the Moon is %s, %s lit.\nThe Moon %s.\n"+meaning,
-			plainNames[e.Kind.Name], at, s.where, waxing(e), percent(e.Illuminated), bearing(e), s.refraction)
+		fmt.Fprintf(&b, "%s%s at %s, azimuth %s); %s, %s lit.", plainNames[e.Kind.Name], over, at,
+			appendAzimuthWords(nil, e), waxing(e), percent(e.Illuminated))
 	case "moon-transit":
 		title = "Moon highest, " + height(e.Altitude, "up")
-		fmt.Fprintf(&b, "The Moon crosses the meridian at %s, %s, at %s altitude", at, s.where, degrees(e.Altitude))
+		fmt.Fprintf(&b, "Moon highest at %s, at %s altitude", at, degrees(e.Altitude))
 		if e.Altitude < 0 {
 			b.WriteString(", below the horizon")
 		}
@@ -273,22 +300,10 @@ func describeMoon(s *siteInfo, e Event) (string, string) {
 	case "dark-window":
 		length := hm(ToSecond(e.End).Sub(ToSecond(e.Start)))
 		title = fmt.Sprintf("Dark sky, %s, %s", length, NightOf(e.Date))
-		fmt.Fprintf(&b, "Dark sky on the %s from %s%s to %s%s (%s), %s: the Sun is more than 18° below the horizon and ",
-			NightOf(e.Date), at, DayMark(e.Start, e.Date, loc), localClock(e.End, loc), DayMark(e.End, e.Date, loc), length, s.where)
-		down := "below the horizon"
-		if len(s.Skyline) > 0 {
-			down = "behind the site's skyline"
-		}
-		if e.Illuminated > 0 {
-			fmt.Fprintf(&b, "the Moon is %s or less than %s lit.", down, percent(e.Illuminated))
-		} else {
-			b.WriteString("the Moon is " + down + ".")
-		}
-		if len(s.Skyline) > 0 {
-			b.WriteString("\nThe Sun's 18° are counted from the flat horizon, not the skyline: the glow of twilight lights the sky over the hills as well.")
-		}
+		fmt.Fprintf(&b, "Dark sky on the %s from %s%s to %s%s (%s).",
+			NightOf(e.Date), at, DayMark(e.Start, e.Date, loc), localClock(e.End, loc), DayMark(e.End, e.Date, loc), length)
 	default:
-		return e.Kind.String(), fmt.Sprintf("%s at %s, %s.", e.Kind, at, s.where)
+		return e.Kind.String(), fmt.Sprintf("%s at %s.", e.Kind, at)
 	}
 	return title, b.String()
 }
@@ -309,14 +324,12 @@ func describeMoonNote(s *siteInfo, n Note) (string, string) {
 		case n.State == astro.AlwaysBelow:
 			title = "The Moon stays below the horizon all day"
 		default:
-			title = fmt.Sprintf("No moon%s today", verb)
+			return fmt.Sprintf("No moon%s today", verb), fmt.Sprintf("No moon%s on this date: the Moon %ss about 50 minutes later each day.", verb, verb)
 		}
 	case "moon-transit":
-		// the place and the date are of the missing transit, not of the
-		// reason: they come first in the description
+		// the site and the date are the entry's LOCATION and date
 		const why = "the Moon crosses the meridian about 50 minutes later each day"
-		return "No Moon transit today: " + why,
-			fmt.Sprintf("No Moon transit at %s on %s: %s.", s.where, n.Date.Format("Monday 2 January 2006"), why)
+		return "No Moon transit today: " + why, "No Moon transit on this date: " + why + "."
 	case "dark-window":
 		why := "the Moon is up and bright all through the astronomical night"
 		switch {
@@ -325,11 +338,11 @@ func describeMoonNote(s *siteInfo, n Note) (string, string) {
 		case len(s.Skyline) > 0:
 			why = "the Moon is over the skyline and bright all through the astronomical night"
 		}
-		// the night names its dates once, in the title and in the description
-		return "No dark sky on the " + NightOf(n.Date) + ": " + why,
-			fmt.Sprintf("No dark sky at %s on the %s: %s.", s.where, NightOf(n.Date), why)
+		title = "No dark sky on the " + NightOf(n.Date) + ": " + why
+		return title, title + "."
 	default:
 		title = n.Kind.String()
 	}
-	return title, fmt.Sprintf("%s at %s on %s.", title, s.where, n.Date.Format("Monday 2 January 2006"))
+	// the site and the date are the entry's LOCATION and date
+	return title, title + "."
 }

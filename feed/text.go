@@ -411,7 +411,7 @@ func hasKind(specs []config.KindSpec, name string) bool {
 // kindMeanings are the sentences that say what the entries of the kinds of
 // specs mean, once for each kind (a group's members included) whose entries
 // leave it out: sunrise and sunset, the twilights, golden hour, blue hour,
-// sun bands and supplemental lighting (lightingMeaning, with what counts as
+// sun bands, the Moon's kinds (moonMeaning) and supplemental lighting (lightingMeaning, with what counts as
 // natural light and the advice for lamps once). Their entries say what they are and give their own times
 // and numbers ("Civil dawn at 06:14:47 CET."); the meaning is the same on
 // every date.
@@ -439,6 +439,11 @@ func kindMeanings(s *config.Site, specs []config.KindSpec) []string {
 			case "sunrise", "sunset":
 				add(kindMeaning(s, k.Name))
 				azimuth = true
+			case "moonrise", "moonset":
+				add(moonMeaning(s, k.Name, 0))
+				azimuth = true
+			case "dark-window", "new-moon", "first-quarter", "full-moon", "last-quarter", "moon-transit":
+				add(moonMeaning(s, k.Name, spec.MaxIllumination))
 			default:
 				add(kindMeaning(s, k.Name))
 			}
@@ -456,7 +461,8 @@ func kindMeanings(s *config.Site, specs []config.KindSpec) []string {
 	return out
 }
 
-// azimuthMeaning says how sunrise and sunset entries give their direction.
+// azimuthMeaning says how sunrise, sunset, moonrise and moonset entries
+// give their direction.
 const azimuthMeaning = "Azimuths are in degrees from the north through the east (90° east, 180° south)."
 
 // kindMeaning is the meaning of a sunrise, a sunset, a twilight's dawn or
@@ -559,15 +565,15 @@ func describe(s *siteInfo, e Event) (string, string) {
 	case "noon-clear":
 		if e.Direction == astro.Rising {
 			title = "The noon Sun clears the skyline again"
-			fmt.Fprintf(&b, "From today the Sun is over the skyline at solar noon (%s, %s high), %s.", at, degrees(e.Altitude), s.where)
+			fmt.Fprintf(&b, "From today the Sun is over the skyline at solar noon (%s, %s high).", at, degrees(e.Altitude))
 		} else {
 			title = "The noon Sun stays behind the skyline from today"
-			fmt.Fprintf(&b, "From today the Sun is behind the skyline at solar noon (%s, %s high), %s, until it clears it again.", at, degrees(e.Altitude), s.where)
+			fmt.Fprintf(&b, "From today the Sun is behind the skyline at solar noon (%s, %s high), until it clears it again.", at, degrees(e.Altitude))
 		}
 	case "sun-hidden":
 		title = fmt.Sprintf("Sun behind the skyline for %s", hm(ToSecond(e.End).Sub(ToSecond(e.Start))))
-		fmt.Fprintf(&b, "The Sun goes behind the skyline at %s, towards %s (%.0f°), and comes out again at %s, %s.",
-			at, astro.CompassPoint(e.Azimuth), e.Azimuth, localClock(e.End, loc), s.where)
+		fmt.Fprintf(&b, "The Sun goes behind the skyline at %s, towards %s (%.0f°), and comes out again at %s.",
+			at, astro.CompassPoint(e.Azimuth), e.Azimuth, localClock(e.End, loc))
 	case "solar-noon":
 		title = "Solar noon, Sun " + height(e.Altitude, "high")
 		// what solar noon is, in the calendar's description (kindMeaning)
@@ -580,7 +586,7 @@ func describe(s *siteInfo, e Event) (string, string) {
 	case "sun-altitude":
 		verb := DirectionWord(e) + " through"
 		title = fmt.Sprintf("Sun %s %s", verb, degrees(e.Kind.Altitude))
-		fmt.Fprintf(&b, "The Sun's centre is %s %s altitude at %s, %s.", verb, degrees(e.Kind.Altitude), at, s.where)
+		fmt.Fprintf(&b, "The Sun's centre is %s %s altitude at %s.", verb, degrees(e.Kind.Altitude), at)
 		if e.Kind.Altitude > -1 {
 			b.WriteString("\n" + cautionEyes) // the Sun may be in view
 		}
@@ -613,9 +619,9 @@ func describe(s *siteInfo, e Event) (string, string) {
 		} else {
 			title = fmt.Sprintf("%s falling below %s", what, amount(e.Kind.DayLength))
 		}
-		fmt.Fprintf(&b, "%s today at %s: "+how+".\n"+
+		fmt.Fprintf(&b, "%s today: "+how+".\n"+
 			"Lighting programs for greenhouses and livestock are set by this threshold.",
-			title, s.Name, hm(e.DayLength), Change(e.DayChange))
+			title, hm(e.DayLength), Change(e.DayChange))
 	case "solar-eclipse", "lunar-eclipse":
 		return describeEclipse(s, e)
 	default:
@@ -900,11 +906,11 @@ func describeNote(s *siteInfo, n Note) (string, string) {
 	var title, desc string
 	if n.Kind.Name == "photoperiod" {
 		t := NotReachedText(n)
-		return t, fmt.Sprintf("%s, %s: no date of this calendar crosses it.", t, s.where)
+		return t, t + ": no date of this calendar crosses it."
 	}
 	if n.State == astro.Crosses && !n.Kind.IsMoon() {
 		title, desc = noEventToday(n.Kind)
-		return title, fmt.Sprintf("%s at %s on %s.", desc, s.where, n.Date.Format("Monday 2 January 2006"))
+		return title, desc + "."
 	}
 	switch n.Family {
 	case "sun-horizon":
@@ -955,7 +961,8 @@ func describeNote(s *siteInfo, n Note) (string, string) {
 			return describeMoonNote(s, n)
 		}
 	}
-	return title, fmt.Sprintf("%s at %s on %s.", desc, s.where, n.Date.Format("Monday 2 January 2006"))
+	// the site and the date are the entry's LOCATION and date
+	return title, desc + "."
 }
 
 // NotReachedText says that a photoperiod threshold is not crossed in a

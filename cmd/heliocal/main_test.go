@@ -172,7 +172,7 @@ func TestEventsAzimuth(t *testing.T) {
 	}
 	code, out, errOut = runCLI(t, append(args, "--format", "ics")...)
 	text := strings.NewReplacer("\r\n ", "", "\\,", ",").Replace(out) // unfolded, commas unescaped
-	for _, w := range []string{"Sunrise at 04:53:49 CEST, azimuth 52° (north-east).", ", azimuth 308° (north-west).", "The Moon rises at ", "The Moon sets at "} {
+	for _, w := range []string{"Sunrise at 04:53:49 CEST, azimuth 52° (north-east).", ", azimuth 308° (north-west).", "Moonrise at ", "Moonset at "} {
 		if code != 0 || !strings.Contains(text, w) {
 			t.Errorf("calendar text lacks %q (exit %d, %s)", w, code, errOut)
 		}

@@ -241,15 +241,7 @@ func moonMeaning(s *config.Site, kind string, maxLit float64) string {
 	case "last-quarter":
 		return name + ": the Moon is 90° west of the Sun, half lit, rising around midnight and high in the morning sky."
 	case "moonrise", "moonset":
-		refr := refractionText(PlaceOf(s).Observer)
-		verb := map[string]string{"moonrise": "appears on the horizon", "moonset": "disappears below the horizon"}[kind]
-		if len(s.Skyline) > 0 {
-			verb, refr = "first appears over the site's skyline", refr+" for the skyline's altitude"
-			if kind == "moonset" {
-				verb = "last disappears behind the site's skyline"
-			}
-		}
-		return name + ": the Moon's upper limb " + verb + " (" + refr + ")."
+		return limbMeaning(s, kind, "Moon", kind == "moonrise")
 	case "moon-transit":
 		return name + ": the Moon crosses the meridian, its highest of the day (below the horizon on some dates)."
 	case "dark-window":

@@ -482,18 +482,27 @@ func kindMeaning(s *config.Site, kind string) string {
 		return "Daylight: the day's civil dawn, sunrise, sunset and civil dusk, to the minute, and the day length, " +
 			"from sunrise to the sunset that ends the day."
 	}
-	verb := map[string]string{"sunrise": "appears on the horizon", "sunset": "disappears below the horizon"}[kind]
-	if verb == "" {
+	if kind != "sunrise" && kind != "sunset" {
 		return ""
 	}
-	refr := refractionText(PlaceOf(s).Observer)
+	return limbMeaning(s, kind, "Sun", kind == "sunrise")
+}
+
+// limbMeaning is the meaning of the rise (rising) or set of body ("Sun",
+// "Moon") at site s, kind its kind's name: "Sunrise: the Sun's upper limb
+// appears on the horizon (standard refraction)."
+func limbMeaning(s *config.Site, kind, body string, rising bool) string {
+	verb, refr := "disappears below the horizon", refractionText(PlaceOf(s).Observer)
+	if rising {
+		verb = "appears on the horizon"
+	}
 	if len(s.Skyline) > 0 {
-		verb, refr = "first appears over the site's skyline", refr+" for the skyline's altitude"
-		if kind == "sunset" {
-			verb = "last disappears behind the site's skyline"
+		verb, refr = "last disappears behind the site's skyline", refr+" for the skyline's altitude"
+		if rising {
+			verb = "first appears over the site's skyline"
 		}
 	}
-	return plainNames[kind] + ": the Sun's upper limb " + verb + " (" + refr + ")."
+	return plainNames[kind] + ": the " + body + "'s upper limb " + verb + " (" + refr + ")."
 }
 
 // bandMeaning is the meaning of the spans of a band kind (golden hour,

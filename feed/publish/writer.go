@@ -290,7 +290,12 @@ func (w *Writer) writeTemp(name string, data []byte) (_ string, err error) {
 	if err = f.Chmod(FileMode); err != nil {
 		return "", fmt.Errorf("publish: write %s: %w", name, err)
 	}
-	if err = f.Sync(); err != nil {
+	if osf, ok := f.(*os.File); ok {
+		err = syncHeld(osf)
+	} else {
+		err = f.Sync()
+	}
+	if err != nil {
 		return "", fmt.Errorf("publish: write %s: %w", name, err)
 	}
 	closed = true

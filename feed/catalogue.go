@@ -133,11 +133,11 @@ func (sky *Sky) Calendar(ctx context.Context, s *config.Site, f *config.Feed, fi
 	if opts.FeedURL != nil {
 		cal.URL = opts.FeedURL(f.ID)
 	}
-	entries, err := sky.feedEntries(ctx, s, f, first, last)
+	entries, text, err := sky.feedEntries(ctx, s, f, first, last)
 	if err != nil {
 		return nil, fmt.Errorf("feed %q: %w", f.ID, err)
 	}
-	cal.Entries = entries
+	cal.Entries, cal.text = entries, text
 	return cal, nil
 }
 
@@ -176,7 +176,7 @@ func PlaceOf(s *config.Site) Place {
 // UID. It stops with ctx's error when ctx is done.
 func (sky *Sky) Entries(ctx context.Context, s *config.Site, feedID string, specs []config.KindSpec, first, last time.Time) ([]Entry, error) {
 	col := &collector{ctx: ctx, sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
-	es, err := sky.entries(col, s, feedID, specs, 0)
+	es, _, err := sky.entries(col, s, feedID, specs, 0, false)
 	if err != nil {
 		return nil, err
 	}
@@ -186,23 +186,39 @@ func (sky *Sky) Entries(ctx context.Context, s *config.Site, feedID string, spec
 // entries is Entries, unsorted, on a collector for the feed's dates, which
 // may have computed some of the Sun's crossings already, with room for
 // room more entries (a feed's plans).
-func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []config.KindSpec, room int) ([]Entry, error) {
+//
+// With keepText the entries' descriptions and UIDs are not copied out of
+// the writer's text buffer but are substrings of it (see flushText), and
+// the buffer is returned: it is the memory of those strings, for a
+// calendar to hand back on Release (Calendar.text). Without it the
+// strings are copies and the buffer is used again at once.
+func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []config.KindSpec, room int, keepText bool) (_ []Entry, text []byte, _ error) {
 	last := col.last
 	days := int(col.last.Sub(col.first).Hours()/24) + 1
-	w := entryWriter{feedID: feedID, site: newSiteInfo(s), noted: map[string]bool{}, last: civil(last)}
+	w := entryWriter{feedID: feedID, site: newSiteInfo(s), noted: map[string]bool{}, last: civil(last), keepText: keepText}
 	w.out = releasedEntries.get(days*(len(specs)+1) + room)
-	w.text = textBuffers.get(days * textPerEntry)
+	if keepText {
+		// the text of every kind, one after the other
+		w.text = textBuffers.get(days * len(specs) * textPerEntry)
+	} else {
+		w.text = textBuffers.get(days * textPerEntry)
+	}
 	w.spans = textSpans.get(days + days/8) // a kind's entries: flushText empties it after each
-	defer func() { textBuffers.put(w.text); textSpans.put(w.spans) }()
+	defer func() {
+		if !keepText {
+			textBuffers.put(w.text)
+		}
+		textSpans.put(w.spans)
+	}()
 	if err := col.prepare(altitudes(col.p.Observer, specs)...); err != nil {
-		return nil, err
+		return nil, nil, err
 	}
 	for si, spec := range specs {
 		w.alarm = alarmOf(spec.Alarm)
 		from := len(w.out)
 		if spec.Kind.Name == "daily-summary" {
 			if err := summaries(col, &w, spec); err != nil {
-				return nil, fmt.Errorf("%s: %w", spec.Kind, err)
+				return nil, nil, fmt.Errorf("%s: %w", spec.Kind, err)
 			}
 			w.out = keep(w.out, from, spec)
 			continue
@@ -210,7 +226,7 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 		n0, m0 := len(col.events), len(col.notes)
 		col.maxLit, col.spec = spec.MaxIllumination, spec
 		if err := col.add(spec.Kind); err != nil {
-			return nil, fmt.Errorf("%s: %w", spec.Kind, err)
+			return nil, nil, fmt.Errorf("%s: %w", spec.Kind, err)
 		}
 		w.out = slices.Grow(w.out, len(col.events)-n0+len(col.notes)-m0)
 		if spec.Kind.Name == config.KindLighting {
@@ -230,7 +246,10 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 		col.events, col.notes = col.events[:0], col.notes[:0]
 	}
 	w.flushText()
-	return w.out, nil
+	if keepText {
+		return w.out, w.text, nil
+	}
+	return w.out, nil, nil
 }
 
 // slicePool keeps the memory of slices a feed has done with for the next
@@ -261,9 +280,10 @@ var (
 	// (Calendar.Release): about 0.6 MB for an ad-hoc year feed.
 	releasedEntries slicePool[Entry]
 	// textBuffers holds the entry writers' text buffers (entryWriter.text):
-	// flushText copies the text into the entries' strings, so the buffer is
-	// scratch once the entries are written (about 140 kB for a year of four
-	// kinds).
+	// where flushText copies the text into the entries' strings the buffer
+	// is scratch once the entries are written (about 140 kB for a year of
+	// four kinds); a calendar's is its entries' text, given back by
+	// Release (about 0.6 MB for a year of five kinds).
 	textBuffers slicePool[byte]
 	// textSpans holds the entry writers' lists of where each entry's
 	// text is (entryWriter.spans), about 15 kB for a year.
@@ -282,6 +302,10 @@ var (
 func (c *Calendar) Release() {
 	releasedEntries.put(c.Entries)
 	c.Entries = nil
+	if c.text != nil {
+		textBuffers.put(c.text)
+		c.text = nil
+	}
 }
 
 // kindRank is each kind's place in the catalogue (config.KindNames).
@@ -618,9 +642,13 @@ type entryWriter struct {
 
 	// text holds the descriptions and UIDs of the events written since
 	// the last flushText, and spans where each is: flushText makes them
-	// substrings of one string, instead of two strings per entry.
-	text  []byte
-	spans []textSpan
+	// substrings of one string, instead of two strings per entry. With
+	// keepText that string is text itself from flushed on, never copied:
+	// text is only appended to, and the entries own it (see entries).
+	text     []byte
+	spans    []textSpan
+	keepText bool
+	flushed  int
 }
 
 // kindName returns k.String(), written once per feed for the kinds with a
@@ -722,15 +750,27 @@ func (w *entryWriter) flushText() {
 	if len(w.spans) == 0 {
 		return
 	}
-	s := string(w.text)
+	var s string
+	base := w.flushed
+	if w.keepText {
+		// the bytes from flushed on are never written again (a longer
+		// text goes to a new array, and this one stays as it is)
+		s = unsafe.String(&w.text[base], len(w.text)-base)
+		w.flushed = len(w.text)
+	} else {
+		s = string(w.text)
+	}
 	for _, sp := range w.spans {
 		e := &w.out[sp.entry]
-		e.Description, e.UID = s[sp.from:sp.to], s[sp.uid:sp.uid+uidLen]
+		e.Description, e.UID = s[sp.from-base:sp.to-base], s[sp.uid-base:sp.uid-base+uidLen]
 		if sp.title > 0 {
-			e.Title = s[sp.title:sp.uid]
+			e.Title = s[sp.title-base : sp.uid-base]
 		}
 	}
-	w.text, w.spans = w.text[:0], w.spans[:0]
+	if !w.keepText {
+		w.text = w.text[:0]
+	}
+	w.spans = w.spans[:0]
 }
 
 // categories returns the CATEGORIES of a kind, built once per feed.

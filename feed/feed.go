@@ -120,4 +120,9 @@ type Calendar struct {
 	// reach after the window was shortened to keep the feed under its size
 	// limit.
 	TrimmedTo time.Time
+
+	// text is the memory of the entries' descriptions and UIDs, when the
+	// catalogue made them as substrings of one buffer: Release hands it
+	// back with the entries.
+	text []byte
 }

@@ -60,7 +60,7 @@ type planDate struct {
 // feedEntries computes the entries of a feed's kinds and plans on the local
 // dates first..last, sorted by Start then UID, finding the Sun's crossings
 // for both in one pass.
-func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed, first, last time.Time) ([]Entry, error) {
+func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed, first, last time.Time) ([]Entry, []byte, error) {
 	col := &collector{ctx: ctx, sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
 	// the collector's events are scratch: entries copies each into an
 	// entry, the plans' times copy those they keep (kindTimes), and
@@ -74,31 +74,31 @@ func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed,
 	col.xsBuf, col.scratch = &buf.crossings, buf
 	defer collectorBuffers.Put(buf)
 	if len(f.Plans) == 0 {
-		es, err := sky.entries(col, s, f.ID, f.Kinds, 0)
+		es, text, err := sky.entries(col, s, f.ID, f.Kinds, 0, true)
 		if err != nil {
-			return nil, err
+			return nil, nil, err
 		}
-		return sortEntries(es), nil
+		return sortEntries(es), text, nil
 	}
 	parsed, kinds, err := parsePlans(f.Plans)
 	if err != nil {
-		return nil, err
+		return nil, nil, err
 	}
 	pd, err := sky.allPlanDates(col, parsed)
 	if err != nil {
-		return nil, err
+		return nil, nil, err
 	}
 	// the kinds' crossings in one pass; the plans take theirs from it, or
 	// find them on their own dates only (planEntries), and append their
 	// entries to the kinds' (room made for them)
-	es, err := sky.entries(col, s, f.ID, f.Kinds, pd.total)
+	es, text, err := sky.entries(col, s, f.ID, f.Kinds, pd.total, true)
 	if err != nil {
-		return nil, err
+		return nil, nil, err
 	}
 	if es, err = sky.planEntries(col, s, f.ID, parsed, kinds, pd, es); err != nil {
-		return nil, err
+		return nil, nil, err
 	}
-	return sortEntries(es), nil
+	return sortEntries(es), text, nil
 }
 
 // PlanEntries computes the entries of a feed's plans on the local dates

@@ -3,7 +3,10 @@ package publish
 import (
 	"errors"
 	"io"
+	"io/fs"
 	"os"
+	"strconv"
+	"strings"
 	"syscall"
 	"unsafe"
 )
@@ -131,4 +134,39 @@ func syncHeld(f *os.File) error {
 		return err
 	}
 	return serr
+}
+
+// umaskKeeps reports whether the process's umask, read now from
+// /proc/self/status (Linux 4.7 and later), clears none of mode's bits:
+// then a file created with mode has it. False when it cannot tell.
+func umaskKeeps(mode fs.FileMode) bool {
+	status, err := os.ReadFile("/proc/self/status")
+	if err != nil {
+		return false
+	}
+	for line := range strings.Lines(string(status)) {
+		if v, ok := strings.CutPrefix(line, "Umask:"); ok {
+			mask, err := strconv.ParseUint(strings.TrimSpace(v), 8, 32)
+			return err == nil && fs.FileMode(mask)&mode.Perm() == 0
+		}
+	}
+	return false
+}
+
+// openNew creates the file name, which must not exist, for reading and
+// writing with mode (less the umask). It is os.OpenFile with O_CREATE and
+// O_EXCL without the four calls that offer a regular file to the network
+// poller (set non-blocking, register, refused, set blocking again): one
+// open(2), and the one fcntl(2) of os.NewFile.
+func openNew(name string, mode fs.FileMode) (*os.File, error) {
+	for {
+		fd, err := syscall.Open(name, syscall.O_RDWR|syscall.O_CREAT|syscall.O_EXCL|syscall.O_CLOEXEC, uint32(mode.Perm()))
+		switch {
+		case err == syscall.EINTR:
+			continue
+		case err != nil:
+			return nil, &fs.PathError{Op: "open", Path: name, Err: err}
+		}
+		return os.NewFile(uintptr(fd), name), nil
+	}
 }

@@ -7,9 +7,11 @@ import (
 	"fmt"
 	"io"
 	"io/fs"
+	"math/rand/v2"
 	"os"
 	"path/filepath"
 	"sort"
+	"strconv"
 	"strings"
 	"sync"
 	"time"
@@ -76,6 +78,10 @@ type Writer struct {
 	step func(what string)
 	// now is the clock used to age leftovers; nil means time.Now.
 	now func() time.Time
+	// createdMode: the process's umask, as prepare found it, leaves
+	// FileMode as it is, so a temporary file created with it needs no
+	// chmod.
+	createdMode bool
 }
 
 // Stats counts what a publish did.
@@ -157,6 +163,7 @@ func (w *Writer) prepare() (removed int, err error) {
 	if !fi.IsDir() {
 		return 0, fmt.Errorf("publish: output directory %s: not a directory", w.Dir)
 	}
+	w.createdMode = umaskKeeps(FileMode)
 	return w.removeStaleTemps()
 }
 
@@ -255,9 +262,10 @@ func (w *Writer) writeFile(name string, data []byte) (written bool, err error) {
 // with FileMode and flushed to disk, and returns its path. Nothing is left
 // behind on error.
 func (w *Writer) writeTemp(name string, data []byte) (_ string, err error) {
-	create := w.createTemp
+	create, chmod := w.createTemp, true
 	if create == nil {
-		create = func(dir, pattern string) (tempFile, error) { return os.CreateTemp(dir, pattern) }
+		create = func(dir, pattern string) (tempFile, error) { return createTemp(dir, pattern) }
+		chmod = !w.createdMode
 	}
 	f, err := create(w.Dir, w.tempPattern(name))
 	if err != nil {
@@ -287,8 +295,10 @@ func (w *Writer) writeTemp(name string, data []byte) (_ string, err error) {
 	if err != nil {
 		return "", fmt.Errorf("publish: write %s: %w", name, err)
 	}
-	if err = f.Chmod(FileMode); err != nil {
-		return "", fmt.Errorf("publish: write %s: %w", name, err)
+	if chmod {
+		if err = f.Chmod(FileMode); err != nil {
+			return "", fmt.Errorf("publish: write %s: %w", name, err)
+		}
 	}
 	if osf, ok := f.(*os.File); ok {
 		err = syncHeld(osf)
@@ -303,6 +313,24 @@ func (w *Writer) writeTemp(name string, data []byte) (_ string, err error) {
 		return "", fmt.Errorf("publish: write %s: %w", name, err)
 	}
 	return tmp, nil
+}
+
+// createTemp is os.CreateTemp creating the file with FileMode (less the
+// umask) instead of 0600 (see openNew): pattern's "*" becomes random
+// digits, tried again while the name is taken. Where the umask leaves
+// FileMode as it is (Writer.createdMode), the file needs no chmod after.
+func createTemp(dir, pattern string) (*os.File, error) {
+	prefix, suffix, _ := strings.Cut(pattern, "*")
+	prefix = filepath.Join(dir, prefix)
+	for range 10000 {
+		name := prefix + strconv.FormatUint(uint64(rand.Uint32()), 10) + suffix
+		f, err := openNew(name, FileMode)
+		if errors.Is(err, fs.ErrExist) {
+			continue
+		}
+		return f, err
+	}
+	return nil, &fs.PathError{Op: "createtemp", Path: prefix + "*" + suffix, Err: fs.ErrExist}
 }
 
 // install renames the temporary file tmp over name, refusing to replace

@@ -2,6 +2,7 @@ package astro
 
 import (
 	"math"
+	"runtime"
 	"slices"
 	"sync"
 )
@@ -85,7 +86,7 @@ var chebCos = func() (c [sunChebNodes][sunChebNodes]float64) {
 // Node j of successive blocks lies sunChebDays apart, so each term's cosine
 // is carried from one block to the next by a rotation (as daily does for
 // the fast terms), computed afresh every slowRestart blocks: the values
-// agree with the series summed (evalVSOP of slowTerms) to about 1e-15 of
+// agree with the series summed (evalVSOP of the slow terms) to about 1e-15 of
 // each term's amplitude.
 func slowNodes(jde0 float64, n int) (vals [3][]float64) {
 	xs := &chebCos[1]
@@ -97,21 +98,35 @@ func slowNodes(jde0 float64, n int) (vals [3][]float64) {
 			tau[i*sunChebNodes+j] = (mid + 0.5*sunChebDays*xs[j] - J2000) / julianMillennium
 		}
 	}
-	// L, B and R are summed on their own goroutines (each in the same
-	// order as alone): their sums are independent, and this is most of
-	// the fit's cost, which the daily samples wait for.
-	var wg sync.WaitGroup
+	// The nodes are shared out among the cores, each summing L, B and R at
+	// its own nodes: a node's value goes through the same operations in the
+	// same order whichever goroutine sums it (the nodes' rotations are
+	// independent of one another), and the shares are even, where one
+	// goroutine per coordinate left a core waiting on L, the longest
+	// series. This is most of the fit's cost, which the daily samples wait
+	// for.
+	slowTerms, _ := vsopParts()
 	for v := range 3 {
 		vals[v] = make([]float64, m)
-		wg.Go(func() { slowSum(vals[v], slowTerms[v], tau, n) })
 	}
+	share := func(j0, j1 int) {
+		for v := range 3 {
+			slowSum(vals[v], slowTerms[v], tau, n, j0, j1)
+		}
+	}
+	parts := min(runtime.GOMAXPROCS(0), sunChebNodes)
+	var wg sync.WaitGroup
+	for p := 1; p < parts; p++ {
+		wg.Go(func() { share(p*sunChebNodes/parts, (p+1)*sunChebNodes/parts) })
+	}
+	share(0, sunChebNodes/parts)
 	wg.Wait()
 	return vals
 }
 
 // slowSum adds to vals the terms of series (by power of τ) at the nodes
-// tau of n blocks, as slowNodes describes.
-func slowSum(vals []float64, series [][]vsopTerm, tau []float64, n int) {
+// j0..j1−1 of each of the n blocks of tau, as slowNodes describes.
+func slowSum(vals []float64, series [][]vsopTerm, tau []float64, n, j0, j1 int) {
 	const slowRestart = 32
 	const h = sunChebDays / julianMillennium // a block in millennia
 	m := len(vals)
@@ -120,31 +135,34 @@ func slowSum(vals []float64, series [][]vsopTerm, tau []float64, n int) {
 	for k := range m {
 		tp[k] = 1
 	}
+	w := j1 - j0
 	for _, terms := range series {
 		clear(part)
 		for _, t := range terms {
 			sr, cr := math.Sincos(t.c * h)
 			var C, S [sunChebNodes]float64 // node j's rotation: independent of the others'
 			for i := range n {
-				ps := part[i*sunChebNodes : (i+1)*sunChebNodes]
-				ts := tau[i*sunChebNodes : (i+1)*sunChebNodes]
+				ps := part[i*sunChebNodes+j0 : i*sunChebNodes+j1]
+				ts := tau[i*sunChebNodes+j0 : i*sunChebNodes+j1]
 				if i%slowRestart == 0 {
-					for j := range sunChebNodes {
+					for j := range w {
 						S[j], C[j] = math.Sincos(t.b + t.c*ts[j])
 					}
 				} else {
-					for j := range sunChebNodes {
+					for j := range w {
 						C[j], S[j] = C[j]*cr-S[j]*sr, S[j]*cr+C[j]*sr
 					}
 				}
-				for j := range sunChebNodes {
+				for j := range w {
 					ps[j] += t.a * C[j]
 				}
 			}
 		}
-		for k := range m {
-			vals[k] += part[k] * tp[k]
-			tp[k] *= tau[k]
+		for i := range n {
+			for k := i*sunChebNodes + j0; k < i*sunChebNodes+j1; k++ {
+				vals[k] += part[k] * tp[k]
+				tp[k] *= tau[k]
+			}
 		}
 	}
 }
@@ -164,6 +182,7 @@ func (s *earthSeries) slowAt(jde float64) (L, B, R float64) {
 func (s *earthSeries) at(jde float64) (L, B, R float64) {
 	L, B, R = s.slowAt(jde)
 	tau := (jde - J2000) / julianMillennium
+	_, fastTerms := vsopParts()
 	L += evalVSOP(fastTerms[0], tau)
 	B += evalVSOP(fastTerms[1], tau)
 	R += evalVSOP(fastTerms[2], tau)
@@ -202,6 +221,7 @@ func (s *earthSeries) daily(jdes []float64, buf *sampleBuffers) (L, B, R []float
 	// and sine rotated together from sample to sample: the terms' rotations
 	// are independent of one another
 	tp := floats(&buf.tp, n) // τᵖ
+	_, fastTerms := vsopParts()
 	for v := range 3 {
 		for k := range n {
 			tp[k] = 1
@@ -259,10 +279,11 @@ func floats(b *[]float64, n int) []float64 {
 	return *b
 }
 
-// slowTerms and fastTerms are the VSOP87D series of L, B and R split at
-// fastPeriod: the fast ones are the Moon's pull on the Earth and its
-// harmonics (about 150 of the 1,567 terms).
-var slowTerms, fastTerms = splitVSOP()
+// vsopParts returns the VSOP87D series of L, B and R split at fastPeriod,
+// slow terms and fast: the fast ones are the Moon's pull on the Earth and
+// its harmonics (about 150 of the 1,567 terms). They are split at first use
+// (the Sun's ephemeris), not when the program starts.
+var vsopParts = sync.OnceValues(splitVSOP)
 
 func splitVSOP() (slow, fast [3][][]vsopTerm) {
 	cut := 2 * math.Pi * julianMillennium / fastPeriod // rad per millennium

@@ -243,38 +243,45 @@ func NewEphemeris(from, to time.Time) (*Ephemeris, error) {
 	series := newEarthSeries(epochOf(start).JDE-0.5, epochOf(end).JDE+0.5)
 	tr := allocTrack(start, secondsPerDay, n)
 	tr.sd, tr.cd = make([]float64, n), make([]float64, n) // filled run by run (trigRange)
-	// The samples are taken in runs of whole blocks (daily starts its
-	// rotations afresh at each block, whichever run it is given), one run
-	// per core, block by block (a block's working memory reused for the
-	// next): the same numbers as in one run.
-	runs := min(runtime.GOMAXPROCS(0), (n+sunChebDays-1)/sunChebDays)
-	per := (n + runs - 1) / runs
-	per = (per + sunChebDays - 1) / sunChebDays * sunChebDays
-	var wg sync.WaitGroup
-	for k0 := 0; k0 < n; k0 += per {
-		k1 := min(k0+per, n)
-		wg.Go(func() {
-			var buf sampleBuffers
-			es := make([]Epoch, 0, sunChebDays)
-			jdes := make([]float64, 0, sunChebDays)
-			for b0 := k0; b0 < k1; b0 += sunChebDays {
-				b1 := min(b0+sunChebDays, k1)
-				es, jdes = es[:0], jdes[:0]
-				for k := b0; k < b1; k++ {
-					e := epochOf(start + float64(k)*secondsPerDay)
-					es, jdes = append(es, e), append(jdes, e.JDE)
-				}
-				Ls, Bs, Rs := series.daily(jdes, &buf)
-				dpsi, deps := nutationDaily(jdes, &buf)
-				tr.fill(b0, es, func(k int, e Epoch) (ra, dec, dist, eqEq float64) {
-					i := k - b0
-					s := apparentSunNut(e.JDE, Ls[i], Bs[i], Rs[i], dpsi[i], deps[i])
-					return s.ra, s.dec, s.r * earthRadiiPerAU, s.dpsi * math.Cos(s.eps)
-				})
+	// The samples are taken block by block (daily starts its rotations
+	// afresh at each block, whichever goroutine takes it), each core taking
+	// the next block not yet taken until none is left, so that the cores
+	// finish within a block of each other; the calling goroutine is one of
+	// them. A goroutine's working memory serves each of its blocks: the
+	// same numbers as in one run.
+	blocks := (n + sunChebDays - 1) / sunChebDays
+	var next atomic.Int64
+	take := func() {
+		var buf sampleBuffers
+		es := make([]Epoch, 0, sunChebDays)
+		jdes := make([]float64, 0, sunChebDays)
+		for {
+			b := int(next.Add(1) - 1)
+			if b >= blocks {
+				return
 			}
-			tr.trigRange(k0, k1)
-		})
+			b0 := b * sunChebDays
+			b1 := min(b0+sunChebDays, n)
+			es, jdes = es[:0], jdes[:0]
+			for k := b0; k < b1; k++ {
+				e := epochOf(start + float64(k)*secondsPerDay)
+				es, jdes = append(es, e), append(jdes, e.JDE)
+			}
+			Ls, Bs, Rs := series.daily(jdes, &buf)
+			dpsi, deps := nutationDaily(jdes, &buf)
+			tr.fill(b0, es, func(k int, e Epoch) (ra, dec, dist, eqEq float64) {
+				i := k - b0
+				s := apparentSunNut(e.JDE, Ls[i], Bs[i], Rs[i], dpsi[i], deps[i])
+				return s.ra, s.dec, s.r * earthRadiiPerAU, s.dpsi * math.Cos(s.eps)
+			})
+			tr.trigRange(b0, b1)
+		}
 	}
+	var wg sync.WaitGroup
+	for range min(runtime.GOMAXPROCS(0), blocks) - 1 {
+		wg.Go(take)
+	}
+	take()
 	wg.Wait()
 	tr.finish()
 	tr.carry = true

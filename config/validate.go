@@ -10,6 +10,7 @@ import (
 	"slices"
 	"strconv"
 	"strings"
+	"sync"
 	"time"
 	"unicode"
 	"unicode/utf8"
@@ -34,8 +35,9 @@ const (
 )
 
 // idPattern is the shape of site and feed ids: they become file names and
-// URL path segments.
-var idPattern = regexp.MustCompile(`^[a-z0-9][a-z0-9-]*$`)
+// URL path segments. It is compiled at first use, as the other tables of
+// this package are, not when the program starts.
+var idPattern = sync.OnceValue(func() *regexp.Regexp { return regexp.MustCompile(`^[a-z0-9][a-z0-9-]*$`) })
 
 // FieldError is one problem of a configuration.
 type FieldError struct {
@@ -402,7 +404,7 @@ func checkCronFires(expr string, now time.Time) string {
 
 // validID reports whether checkID accepts id.
 func validID(id string) bool {
-	return id != "" && len(id) <= MaxIDLength && idPattern.MatchString(id)
+	return id != "" && len(id) <= MaxIDLength && idPattern().MatchString(id)
 }
 
 func checkID(ps *problems, path, id, what string) {
@@ -411,9 +413,9 @@ func checkID(ps *problems, path, id, what string) {
 		ps.add(path, "", "is required", fmt.Sprintf("a short %s id of lower-case letters, digits and dashes, e.g. \"north-field\"", what))
 	case len(id) > MaxIDLength:
 		ps.add(path, id, fmt.Sprintf("longer than %d characters", MaxIDLength), "ids become file names and URLs; keep them short")
-	case !idPattern.MatchString(id):
+	case !idPattern().MatchString(id):
 		hint := "ids become file names and URLs: use lower-case letters, digits and dashes, starting with a letter or digit"
-		if s := slug(id); s != "" && idPattern.MatchString(s) {
+		if s := slug(id); s != "" && idPattern().MatchString(s) {
 			hint = fmt.Sprintf("ids become file names and URLs; e.g. %q", s)
 		}
 		ps.add(path, id, "must match [a-z0-9][a-z0-9-]*", hint)

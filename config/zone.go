@@ -83,8 +83,8 @@ func (e *ZoneError) Error() string {
 var zoneNamesText string
 
 // zoneNames are the tz database's zone names, for suggestions, generated
-// from the Go toolchain's tz data by gen_zonenames.go.
-var zoneNames = func() []string {
+// from the Go toolchain's tz data by gen_zonenames.go, read at first use.
+var zoneNames = sync.OnceValue(func() []string {
 	var names []string
 	for _, line := range strings.Split(zoneNamesText, "\n") {
 		line = strings.TrimSpace(line)
@@ -93,12 +93,12 @@ var zoneNames = func() []string {
 		}
 	}
 	return names
-}()
+})
 
 // ZoneNames returns the time zone names heliocal knows, sorted (UTC first),
 // for shell completion: the tz database of the Go toolchain heliocal was
 // built with (see gen_zonenames.go).
-func ZoneNames() []string { return slices.Clone(zoneNames) }
+func ZoneNames() []string { return slices.Clone(zoneNames()) }
 
 // zoneHint suggests the known zone nearest to a misspelt name: same name with
 // other capitals, same city with another region, or the nearest by edit
@@ -106,18 +106,18 @@ func ZoneNames() []string { return slices.Clone(zoneNames) }
 func zoneHint(name string) string {
 	const generic = `use an IANA name such as "Europe/Vienna" or "America/New_York"`
 	n := strings.ReplaceAll(strings.TrimSpace(name), " ", "_")
-	for _, z := range zoneNames {
+	for _, z := range zoneNames() {
 		if strings.EqualFold(z, n) {
 			return fmt.Sprintf("did you mean %q?", z)
 		}
 	}
 	city := n[strings.LastIndex(n, "/")+1:]
-	for _, z := range zoneNames {
+	for _, z := range zoneNames() {
 		if strings.EqualFold(z[strings.LastIndex(z, "/")+1:], city) {
 			return fmt.Sprintf("did you mean %q?", z)
 		}
 	}
-	if near := closest(n, zoneNames); near != "" {
+	if near := closest(n, zoneNames()); near != "" {
 		return fmt.Sprintf("did you mean %q?", near)
 	}
 	return generic

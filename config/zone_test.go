@@ -30,7 +30,7 @@ func TestZoneHint(t *testing.T) {
 		}
 	}
 	// Every suggestion list entry is a zone the tz database resolves.
-	for _, name := range zoneNames {
+	for _, name := range zoneNames() {
 		if _, err := time.LoadLocation(name); err != nil {
 			t.Errorf("zonenames.txt lists %q, which does not load: %v", name, err)
 		}

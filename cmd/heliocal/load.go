@@ -8,6 +8,7 @@ import (
 	"io"
 	"regexp"
 	"strings"
+	"sync"
 
 	"heliocal/config"
 )
@@ -76,8 +77,11 @@ func parseStdin(r io.Reader, env config.LookupEnv) (*config.Config, error) {
 
 // tomlLine is a TOML table header ("[service]", "[[sites]]") or key/value
 // line ("listen = ':8080'"); neither is valid at the top of a YAML mapping
-// of heliocal's keys.
-var tomlLine = regexp.MustCompile(`^(\[\[?[A-Za-z0-9_."-]+\]\]?\s*(#.*)?|[A-Za-z0-9_."-]+\s*=.*)$`)
+// of heliocal's keys. Compiled at first use: most commands never read a
+// configuration from standard input.
+var tomlLine = sync.OnceValue(func() *regexp.Regexp {
+	return regexp.MustCompile(`^(\[\[?[A-Za-z0-9_."-]+\]\]?\s*(#.*)?|[A-Za-z0-9_."-]+\s*=.*)$`)
+})
 
 // sniffFormat tells the format of a configuration without a file name from
 // its first significant line: "{" starts JSON, a TOML table header or
@@ -92,7 +96,7 @@ func sniffFormat(data []byte) string {
 			continue
 		case strings.HasPrefix(line, "{"):
 			return "json"
-		case tomlLine.MatchString(line):
+		case tomlLine().MatchString(line):
 			return "toml"
 		}
 		return "yaml"

@@ -360,7 +360,7 @@ func (e *Encoder) build(c *feed.Calendar) (*ics.Calendar, int, error) {
 	}
 	w.geo = geo
 	color := strings.ToLower(strings.TrimSpace(c.Color))
-	if color != "" && !cssColors[color] {
+	if color != "" && !cssColors()[color] {
 		return nil, 0, fail("Color %q is not a CSS3 colour name (RFC 7986 COLOR)", c.Color)
 	}
 	for _, u := range []struct{ field, value string }{{"URL", c.URL}, {"PageURL", c.PageURL}} {

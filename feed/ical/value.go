@@ -9,6 +9,7 @@ import (
 	"net/url"
 	"strconv"
 	"strings"
+	"sync"
 	"unicode"
 	"unicode/utf8"
 
@@ -242,8 +243,8 @@ func formatOffset(secs int) string {
 }
 
 // cssColors are the CSS3 colour keywords (CSS Color Module Level 3 §4.1 and
-// §4.3), the names RFC 7986 §5.9 COLOR accepts.
-var cssColors = func() map[string]bool {
+// §4.3), the names RFC 7986 §5.9 COLOR accepts, made at first use.
+var cssColors = sync.OnceValue(func() map[string]bool {
 	m := map[string]bool{}
 	for _, n := range strings.Fields(`aliceblue antiquewhite aqua aquamarine azure beige bisque black
 		blanchedalmond blue blueviolet brown burlywood cadetblue chartreuse chocolate coral cornflowerblue
@@ -264,4 +265,4 @@ var cssColors = func() map[string]bool {
 		m[n] = true
 	}
 	return m
-}()
+})

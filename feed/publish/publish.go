@@ -13,6 +13,7 @@ import (
 	"path/filepath"
 	"regexp"
 	"sort"
+	"sync"
 	"time"
 
 	"heliocal/feed"
@@ -103,7 +104,9 @@ type shardSet struct {
 
 func (s *shardSet) complete() bool { return len(s.indexes) == s.count }
 
-var digestField = regexp.MustCompile(`"configuration_sha256":\s*"([0-9a-f]{64})"`)
+var digestField = sync.OnceValue(func() *regexp.Regexp {
+	return regexp.MustCompile(`"configuration_sha256":\s*"([0-9a-f]{64})"`)
+})
 
 // manifestDigest reads a manifest's configuration fingerprint from its head
 // (where marshalJSON puts it), without reading the feeds it lists; "" when
@@ -119,7 +122,7 @@ func manifestDigest(path string) (string, error) {
 	if err != nil && err != io.ErrUnexpectedEOF && err != io.EOF {
 		return "", err
 	}
-	if m := digestField.FindSubmatch(head[:n]); m != nil {
+	if m := digestField().FindSubmatch(head[:n]); m != nil {
 		return string(m[1]), nil
 	}
 	return "", nil

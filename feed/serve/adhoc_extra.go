@@ -9,6 +9,7 @@ import (
 	"slices"
 	"strconv"
 	"strings"
+	"sync"
 	"time"
 	"unicode"
 	"unicode/utf8"
@@ -141,7 +142,7 @@ func (q AdhocQuery) offsetList() string {
 }
 
 // pointIndex is a skyline point's place in a configuration's message.
-var pointIndex = regexp.MustCompile(ParamHorizon + `\[\d+\]`)
+var pointIndex = sync.OnceValue(func() *regexp.Regexp { return regexp.MustCompile(ParamHorizon + `\[\d+\]`) })
 
 // parseSkyline reads horizon as a skyline: azimuth:altitude points (as the
 // events command's --horizon takes them, but never a file name), at most
@@ -174,7 +175,7 @@ func (q *AdhocQuery) parseSkyline(v string) error {
 				}
 			}
 		}
-		msg = pointIndex.ReplaceAllStringFunc(msg, func(m string) string { // horizon[0] is point 1
+		msg = pointIndex().ReplaceAllStringFunc(msg, func(m string) string { // horizon[0] is point 1
 			j, _ := strconv.Atoi(m[len(ParamHorizon)+1 : len(m)-1])
 			return "point " + strconv.Itoa(j+1)
 		})

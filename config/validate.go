@@ -519,34 +519,12 @@ func (f *Feed) validate(ps *problems, p string) {
 	for j := range f.Plans {
 		f.Plans[j].validate(ps, fmt.Sprintf("%s.plans[%d]", p, j))
 	}
-	type key struct {
-		kind   Kind
-		offset Duration
-	}
-	seen := map[key]int{}
 	for j := range f.Kinds {
-		ks := &f.Kinds[j]
-		kp := fmt.Sprintf("%s.kinds[%d]", p, j)
-		ks.validate(ps, kp)
-		for _, m := range ks.Kind.Members() {
-			if m.IsZero() {
-				continue
-			}
-			k := key{m, ks.Offset}
-			if prev, dup := seen[k]; dup {
-				what := fmt.Sprintf("listed twice (also in %s.kinds[%d]", p, prev)
-				if prevKind := f.Kinds[prev].Kind; prevKind != m {
-					what += fmt.Sprintf(", %q", prevKind.String())
-				}
-				hint := "remove one, or give one an offset"
-				if m.Name == "golden-hour" || m.Name == "blue-hour" {
-					hint += `; for a second band of the Sun give it as a kind of its own, e.g. "sun-band:-4..8"`
-				}
-				ps.add(kp, ks.Kind.String(), what+")", hint)
-				break
-			}
-			seen[k] = j
-		}
+		f.Kinds[j].validate(ps, fmt.Sprintf("%s.kinds[%d]", p, j))
+	}
+	at := func(i int) string { return fmt.Sprintf("%s.kinds[%d]", p, i) }
+	for _, t := range KindsTwice(f.Kinds) {
+		ps.add(at(t.Second), t.Given[1].String(), t.Msg(at), t.Hint(true))
 	}
 	if f.DaysBack < 0 {
 		ps.add(p+".days_back", strconv.Itoa(f.DaysBack), "must not be negative", "the number of past days kept in the feed, e.g. 30")

@@ -219,7 +219,7 @@ func parseDate(flag, v string) (time.Time, error) {
 // would be listed twice.
 func parseKinds(list string) ([]config.Kind, error) {
 	var kinds []config.Kind
-	seen := map[config.Kind]config.Kind{} // a member: the kind that gave it
+	var specs []config.KindSpec
 	for _, name := range strings.Split(list, ",") {
 		name = strings.TrimSpace(name)
 		if name == "" {
@@ -229,23 +229,11 @@ func parseKinds(list string) ([]config.Kind, error) {
 		if err != nil {
 			return nil, badInput("--kinds: %w", err)
 		}
-		for _, m := range k.Members() {
-			if m.IsZero() {
-				continue
-			}
-			if prev, dup := seen[m]; dup {
-				if prev == k { // the same kind, or group, twice
-					return nil, badInput("--kinds: %q: %q listed twice: give each kind once", list, k.String())
-				}
-				group := prev // the group that gave m the other time
-				if prev == m {
-					group = k
-				}
-				return nil, badInput("--kinds: %q: %q listed twice (also in %q): give each kind once", list, m.String(), group.String())
-			}
-			seen[m] = k
-		}
-		kinds = append(kinds, k)
+		kinds, specs = append(kinds, k), append(specs, config.KindSpec{Kind: k})
+	}
+	if twice := config.KindsTwice(specs); len(twice) > 0 {
+		t := twice[0]
+		return nil, badInput("%w", config.FieldError{Path: "--kinds", Value: list, Msg: t.Msg(nil), Hint: t.Hint(false)})
 	}
 	if len(kinds) == 0 {
 		return nil, badInput("--kinds: %q: give at least one kind", list)

@@ -197,7 +197,12 @@ func TestEventsBadInput(t *testing.T) {
 		{"kind twice", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "sunrise,sunset,sunrise"}, `--kinds: "sunrise,sunset,sunrise": "sunrise" listed twice`},
 		{"kind twice in a group", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "seasons,june-solstice"}, `"june-solstice" listed twice (also in "seasons")`},
 		{"kind twice, the group after", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "june-solstice,seasons"}, `"june-solstice" listed twice (also in "seasons")`},
-		{"group twice", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "seasons,seasons"}, `--kinds: "seasons,seasons": "seasons" listed twice: give each kind once`},
+		{"group twice", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "seasons,seasons"}, `--kinds: "seasons,seasons": "seasons" listed twice (give each kind once)`},
+		// a feed's kinds are checked by the same function, with the same words
+		{"kind twice in a config", []string{"check", "--config", filepath.Join("..", "..", "testdata", "config", "duplicate-kind.yaml")},
+			`feeds[0].kinds[1]: june-solstice: "june-solstice" listed twice (also in feeds[0].kinds[0], "seasons") (give each kind once, or give one an offset)`},
+		{"kind twice in a group, flag", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "seasons,june-solstice"},
+			`--kinds: "seasons,june-solstice": "june-solstice" listed twice (also in "seasons") (give each kind once)`},
 		{"date", []string{"events", "--lat", "0", "--lon", "0", "--from", "2027-13-01"}, "--from: \"2027-13-01\""},
 		{"order", []string{"events", "--lat", "0", "--lon", "0", "--from", "2027-02-01", "--to", "2027-01-01"}, "--to"},
 		{"range", []string{"events", "--lat", "0", "--lon", "0", "--from", "1700-01-01", "--to", "1700-01-02"}, "1700"},

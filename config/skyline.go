@@ -47,7 +47,7 @@ func (s *Site) resolveHorizon(path, dir string) []FieldError {
 		}
 		s.HorizonFile = name
 		// a bad point is named by the file and its line, not its index
-		ps := s.setSkyline(path, pts, func(j int) string { return fmt.Sprintf("line %d", lines[j]) })
+		ps := s.setSkyline(path, pts, func(j int) string { return fmt.Sprintf("line %d", lines[j]) }, nil)
 		for i := range ps {
 			if ps[i].Path != path {
 				ps[i].Msg = ps[i].Path + ": " + ps[i].Value + ": " + ps[i].Msg
@@ -65,7 +65,7 @@ func (s *Site) resolveHorizon(path, dir string) []FieldError {
 			}
 			pts = append(pts, p)
 		}
-		return s.setSkyline(path, pts, nil)
+		return s.setSkyline(path, pts, nil, nil)
 	}
 	return []FieldError{{Path: path, Value: showValue(s.HorizonValue), Msg: "must be a number, a list of [azimuth, altitude] points or a CSV file name",
 		Hint: "e.g. horizon: 1.5, or horizon: [[0, 2.5], [90, 8]]"}}
@@ -95,8 +95,9 @@ func pointOf(e any) ([2]float64, bool) {
 // setSkyline checks the points (azimuth 0..360, 360 being 0, distinct;
 // altitude within MinHorizon..MaxHorizon), sorts them and sets Skyline. A
 // problem's path is path[j] for the point j, or, with name, name(j) ("line
-// 4" of a file).
-func (s *Site) setSkyline(path string, pts [][2]float64, name func(j int) string) []FieldError {
+// 4" of a file), and its value the point as "[azimuth, altitude]", or, with
+// show, show(j) (the point as the user wrote it).
+func (s *Site) setSkyline(path string, pts [][2]float64, name, show func(j int) string) []FieldError {
 	if len(pts) == 0 {
 		return []FieldError{{Path: path, Value: "[]", Msg: "an empty skyline", Hint: "give at least one [azimuth, altitude] point, or a number"}}
 	}
@@ -108,19 +109,24 @@ func (s *Site) setSkyline(path string, pts [][2]float64, name func(j int) string
 	}
 	seen := map[float64]int{}
 	for j, p := range pts {
-		at := pointAt(j)
+		at, value := pointAt(j), ""
+		if show != nil {
+			value = show(j)
+		} else {
+			value = fmt.Sprintf("[%s, %s]", ftoa(p[0]), ftoa(p[1]))
+		}
 		if !(p[0] >= 0 && p[0] <= 360) {
-			return []FieldError{{Path: at, Value: fmt.Sprintf("[%s, %s]", ftoa(p[0]), ftoa(p[1])), Msg: "azimuth must be within 0..360", Hint: "degrees from the north through the east: 90 is east, 180 south"}}
+			return []FieldError{{Path: at, Value: value, Msg: "azimuth must be within 0..360", Hint: "degrees from the north through the east: 90 is east, 180 south"}}
 		}
 		if !(p[1] >= MinHorizon && p[1] <= MaxHorizon) {
-			return []FieldError{{Path: at, Value: fmt.Sprintf("[%s, %s]", ftoa(p[0]), ftoa(p[1])), Msg: fmt.Sprintf("altitude must be within %g..%g degrees", MinHorizon, MaxHorizon), Hint: "the apparent altitude of the skyline in that direction; azimuth comes first"}}
+			return []FieldError{{Path: at, Value: value, Msg: fmt.Sprintf("altitude must be within %g..%g degrees", MinHorizon, MaxHorizon), Hint: "the apparent altitude of the skyline in that direction; azimuth comes first"}}
 		}
 		az := p[0]
 		if az == 360 {
 			az = 0
 		}
 		if k, dup := seen[az]; dup {
-			return []FieldError{{Path: at, Value: fmt.Sprintf("[%s, %s]", ftoa(p[0]), ftoa(p[1])), Msg: fmt.Sprintf("azimuth %s given twice (also %s; 0 and 360 are the same)", ftoa(az), pointAt(k)), Hint: "one altitude per direction"}}
+			return []FieldError{{Path: at, Value: value, Msg: fmt.Sprintf("azimuth %s given twice (also %s; 0 and 360 are the same)", ftoa(az), pointAt(k)), Hint: "one altitude per direction"}}
 		}
 		seen[az] = j
 		pts[j][0] = az
@@ -207,19 +213,38 @@ func (s *Site) HorizonFromText(flag, v string) error {
 }
 
 // SkylineFromText reads skyline points written "azimuth:altitude" and
-// separated by commas ("0:2,90:8,180:1,270:4"), with the checks of the
-// configuration's horizon key; the error (a FieldError) names flag, with
-// the index of the point at fault, and the value. Unlike HorizonFromText it
-// reads no file: for text from the network. The points come back sorted
-// by azimuth, 360 written 0.
-func SkylineFromText(flag, v string) ([][2]float64, error) {
-	pts, err := skylineItems(flag, strings.TrimSpace(v))
-	if err != nil {
-		return nil, err
+// separated by commas ("0:2,90:8,180:1,270:4"), each coordinate passed
+// through round first when round is not nil (two points may then fall in
+// one direction), with the checks of the configuration's horizon key. Unlike
+// HorizonFromText it reads no file: for text from the network. A problem
+// is a FieldError for flag and the value whose message names the point at
+// fault by its place and as written, "point 2 (90:60): altitude must be
+// within -5..45 degrees", and another point by its place, "(also point
+// 1; …)". The points come back sorted by azimuth, 360 written 0.
+func SkylineFromText(flag, v string, round func(float64) float64) ([][2]float64, error) {
+	items := strings.Split(strings.TrimSpace(v), ",")
+	point := func(j int) string { return "point " + strconv.Itoa(j+1) }
+	written := func(j int) string { return strings.TrimSpace(items[j]) }
+	pts := make([][2]float64, len(items))
+	for j, item := range items {
+		p, ok := parsePoint(item)
+		if !ok {
+			return nil, FieldError{Path: flag, Value: v, Msg: point(j) + " (" + written(j) + "): must be azimuth:altitude, two numbers",
+				Hint: "e.g. " + flag + " 0:2,90:8,180:1,270:4 (degrees; azimuth from the north through the east)"}
+		}
+		if round != nil {
+			p = [2]float64{round(p[0]), round(p[1])}
+		}
+		pts[j] = p
 	}
-	s := Site{HorizonValue: pts}
-	if ps := s.resolveHorizon(flag, ""); len(ps) > 0 {
-		return nil, ps[0]
+	var s Site
+	if ps := s.setSkyline(flag, pts, point, written); len(ps) > 0 {
+		p := ps[0]
+		if p.Path != flag { // a point's problem
+			p.Msg = p.Path + " (" + p.Value + "): " + p.Msg
+		}
+		p.Path, p.Value = flag, v
+		return nil, p
 	}
 	return s.Skyline, nil
 }
@@ -229,14 +254,20 @@ func SkylineFromText(flag, v string) ([][2]float64, error) {
 func skylineItems(flag, t string) ([]any, error) {
 	var pts []any
 	for j, item := range strings.Split(t, ",") {
-		a, b, ok := strings.Cut(strings.TrimSpace(item), ":")
-		az, err1 := strconv.ParseFloat(strings.TrimSpace(a), 64)
-		alt, err2 := strconv.ParseFloat(strings.TrimSpace(b), 64)
-		if !ok || err1 != nil || err2 != nil {
+		p, ok := parsePoint(item)
+		if !ok {
 			return nil, FieldError{Path: fmt.Sprintf("%s[%d]", flag, j), Value: item, Msg: "must be azimuth:altitude, two numbers",
 				Hint: "e.g. " + flag + " 0:2,90:8,180:1,270:4 (degrees; azimuth from the north through the east)"}
 		}
-		pts = append(pts, []any{az, alt})
+		pts = append(pts, []any{p[0], p[1]})
 	}
 	return pts, nil
+}
+
+// parsePoint reads one skyline point written "azimuth:altitude".
+func parsePoint(item string) ([2]float64, bool) {
+	a, b, ok := strings.Cut(strings.TrimSpace(item), ":")
+	az, err1 := strconv.ParseFloat(strings.TrimSpace(a), 64)
+	alt, err2 := strconv.ParseFloat(strings.TrimSpace(b), 64)
+	return [2]float64{az, alt}, ok && err1 == nil && err2 == nil
 }

@@ -5,11 +5,9 @@ import (
 	"fmt"
 	"maps"
 	"math"
-	"regexp"
 	"slices"
 	"strconv"
 	"strings"
-	"sync"
 	"time"
 	"unicode"
 	"unicode/utf8"
@@ -141,44 +139,23 @@ func (q AdhocQuery) offsetList() string {
 	return strings.Join(items, ",")
 }
 
-// pointIndex is a skyline point's place in a configuration's message.
-var pointIndex = sync.OnceValue(func() *regexp.Regexp { return regexp.MustCompile(ParamHorizon + `\[\d+\]`) })
-
 // parseSkyline reads horizon as a skyline: azimuth:altitude points (as the
 // events command's --horizon takes them, but never a file name), at most
 // maxSkylinePoints, each rounded to 0.1°, checked as a site's horizon list
 // is (azimuth 0..360, altitude within config.MinHorizon..MaxHorizon, one
-// altitude per direction).
+// altitude per direction); a problem names the point ("point 2 (90:60):
+// …", config.SkylineFromText).
 func (q *AdhocQuery) parseSkyline(v string) error {
 	if n := strings.Count(v, ",") + 1; n > maxSkylinePoints {
 		return &QueryError{Param: ParamHorizon, Value: v, Msg: fmt.Sprintf("%d skyline points, at most %d (one every 5°)", n, maxSkylinePoints)}
 	}
-	items := strings.Split(v, ",")
-	for i, item := range items { // rounded before the checks: two points may become one direction
-		a, b, ok := strings.Cut(item, ":")
-		az, err1 := strconv.ParseFloat(strings.TrimSpace(a), 64)
-		alt, err2 := strconv.ParseFloat(strings.TrimSpace(b), 64)
-		if ok && err1 == nil && err2 == nil {
-			items[i] = strconv.FormatFloat(tenth(az), 'f', -1, 64) + ":" +
-				strconv.FormatFloat(tenth(alt), 'f', -1, 64)
-		}
-	}
-	pts, err := config.SkylineFromText(ParamHorizon, strings.Join(items, ","))
+	pts, err := config.SkylineFromText(ParamHorizon, v, tenth)
 	if err != nil {
 		msg := err.Error()
 		var fe config.FieldError
 		if errors.As(err, &fe) {
 			msg = fe.Msg
-			if i := strings.IndexByte(fe.Path, '['); i >= 0 {
-				if j, err := strconv.Atoi(strings.Trim(fe.Path[i:], "[]")); err == nil {
-					msg = fmt.Sprintf("point %d (%s): %s", j+1, strings.TrimSpace(strings.Split(v, ",")[j]), fe.Msg)
-				}
-			}
 		}
-		msg = pointIndex().ReplaceAllStringFunc(msg, func(m string) string { // horizon[0] is point 1
-			j, _ := strconv.Atoi(m[len(ParamHorizon)+1 : len(m)-1])
-			return "point " + strconv.Itoa(j+1)
-		})
 		return &QueryError{Param: ParamHorizon, Value: v, Msg: msg + " (" + skylineParamFormat + ")"}
 	}
 	q.Skyline = pts

@@ -1,0 +1,37 @@
+package config
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"strings"
+	"testing"
+)
+
+// SkylineFromText names the point at fault itself, by its place and as
+// written, and another point by its place: a server answers with its
+// message as it is (feed/serve), reading the points once.
+func TestSkylineFromTextNamesPoints(t *testing.T) {
+	tenth := func(x float64) float64 { return math.Round(x*10) / 10 }
+	for v, want := range map[string]string{
+		"0:2,90:60":       `horizon: "0:2,90:60": point 2 (90:60): altitude must be within -5..45 degrees (the apparent altitude of the skyline in that direction; azimuth comes first)`,
+		"0:2, 361:4":      `point 2 (361:4): azimuth must be within 0..360`,
+		"90:8,0:2,360:1":  `point 3 (360:1): azimuth 0 given twice (also point 2; 0 and 360 are the same)`,
+		"10.01:2,10.04:3": `point 2 (10.04:3): azimuth 10 given twice (also point 1;`, // rounded first
+		"0:2,,90:8":       `point 2 (): must be azimuth:altitude, two numbers`,
+	} {
+		_, err := SkylineFromText("horizon", v, tenth)
+		var fe FieldError
+		if !errors.As(err, &fe) || fe.Path != "horizon" || fe.Value != v || !strings.Contains(err.Error(), want) {
+			t.Errorf("%q: %v, want a FieldError for horizon saying %q", v, err, want)
+		}
+	}
+	pts, err := SkylineFromText("horizon", "270:4.04, 0:2,90:8,360:1.96", nil)
+	if err == nil {
+		t.Errorf("0 and 360 given: %v", pts)
+	}
+	pts, err = SkylineFromText("horizon", "270:4.04, 0:2,90:7.96", tenth)
+	if err != nil || fmt.Sprint(pts) != "[[0 2] [90 8] [270 4]]" {
+		t.Errorf("%v, %v", pts, err)
+	}
+}

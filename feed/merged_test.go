@@ -5,6 +5,7 @@ import (
 	"math"
 	"strings"
 	"testing"
+	"time"
 
 	"heliocal/config"
 )
@@ -124,6 +125,65 @@ func TestBandSpanFromTheDayBeforeCoversTheFirstDate(t *testing.T) {
 	for _, e := range es {
 		if strings.Contains(e.Title, "stays above") || strings.Contains(e.Title, "stays below") {
 			t.Errorf("8 April 2026: %q, but the blue hour that began on the 7th runs to 02:17 on the 8th", e.Title)
+		}
+	}
+}
+
+// Near a pole the Sun stays in the golden band for weeks around an
+// equinox: at 89.5° N it enters through −4° on 11 March 2026 and leaves
+// through +6° on 4 April. The span is "around the clock" and says so, not
+// a "morning" of 580 hours; where it outlasts the listing it runs to the
+// listing's end, said in words; the dates it covers say that the golden
+// hour begun before them lasts into them.
+//
+// PyEphem 4.1 (libastro), Observer 89.5° N 0° E, pressure 0, elevation 0:
+// next_rising(Sun, use_center=True) with horizon −4° from 2026-03-10 20:00
+// UT gives 2026-03-11 04:01:01 UT; the Sun's altitude, sampled every 10 s,
+// passes +6° between 08:08:40 and 08:08:50 UT on 2026-04-04.
+func TestBandAroundTheClock(t *testing.T) {
+	s := site(t, "pole", 89.5, 0, "UTC")
+	golden := []config.KindSpec{{Kind: mustKinds(t, "golden-hour")[0]}}
+	sk := sky(t, "2026-03-01", "2026-04-05")
+	es, err := sk.Entries(context.Background(), s, "f", golden, date("2026-03-01"), date("2026-04-05"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var long []Entry
+	for _, e := range es {
+		if !e.AllDay && e.End.Sub(e.Start) > 24*time.Hour {
+			long = append(long, e)
+		}
+		if e.AllDay && e.Date.After(date("2026-03-11")) && e.Date.Before(date("2026-04-04")) &&
+			(e.Title != "No golden hour begins today" || e.Description != "No golden hour begins on this date: the one that began before it lasts into it.") {
+			t.Errorf("%s: %q / %q", e.Date.Format(time.DateOnly), e.Title, e.Description)
+		}
+	}
+	if len(long) != 1 {
+		t.Fatalf("%d spans longer than a day, want 1: %+v", len(long), long)
+	}
+	e := long[0]
+	if d := e.Start.Sub(time.Date(2026, 3, 11, 4, 1, 1, 0, time.UTC)); d < -5*time.Second || d > 5*time.Second {
+		t.Errorf("enters the band at %v, PyEphem 04:01:01 UT on 11 March", e.Start)
+	}
+	if e.End.Before(time.Date(2026, 4, 4, 8, 8, 35, 0, time.UTC)) || e.End.After(time.Date(2026, 4, 4, 8, 8, 55, 0, time.UTC)) {
+		t.Errorf("leaves the band at %v, PyEphem 08:08:40–08:08:50 UT on 4 April", e.End)
+	}
+	if e.Title != "Golden hour (around the clock)" || !strings.Contains(e.Description, "+24 days") ||
+		!strings.Contains(e.Description, "the Sun's centre stays between −4° and +6° day and night.") || !strings.Contains(e.Description, cautionEyes) {
+		t.Errorf("%q: %q", e.Title, e.Description)
+	}
+
+	// a listing that ends before the Sun leaves the band
+	sk = sky(t, "2026-03-11", "2026-03-12")
+	es, err = sk.Entries(context.Background(), s, "f", golden, date("2026-03-11"), date("2026-03-12"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(es) != 2 || es[0].AllDay || es[0].Title != "Golden hour (around the clock)" ||
+		!strings.Contains(es[0].Description, " from 04:01:0") || !strings.Contains(es[0].Description, " to past the end of this calendar: ") ||
+		!es[0].End.Equal(time.Date(2026, 3, 13, 0, 0, 0, 0, time.UTC)) || !es[1].AllDay {
+		for _, e := range es {
+			t.Errorf("%v–%v %q: %q", e.Start, e.End, e.Title, e.Description)
 		}
 	}
 }

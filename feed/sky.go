@@ -38,6 +38,7 @@ type Event struct {
 	Azimuth      float64       // sunrise/sunset/moonrise/moonset: direction, degrees from north through east
 	Low, High    float64       // golden-hour, blue-hour, sun-band: the altitude bounds, degrees
 	DirectSun    bool          // DayLength is the direct Sun over a skyline (sunrise, sunset, daily summary, photoperiod, lighting)
+	Open         bool          // a band's span not left again before the window ends (near a pole): End is the end of the window
 	Illuminated  float64       // Moon events: illuminated fraction 0..1
 	Waxing       bool          // Moon events: the Moon is waxing
 	Lamp         time.Duration // lighting: length of the lamp period
@@ -62,6 +63,17 @@ func MergedSpan(e Event) bool {
 	switch e.Kind.Name {
 	case "golden-hour", "blue-hour", config.KindSunBand:
 		return e.Part == "all-day" || e.Part == "night"
+	}
+	return false
+}
+
+// AroundTheClock reports whether e is a band's span in which the Sun stays
+// for more than a day (near a pole), or one not left before the window
+// ends (Open).
+func AroundTheClock(e Event) bool {
+	switch e.Kind.Name {
+	case "golden-hour", "blue-hour", config.KindSunBand:
+		return e.Open || span(e.Start, e.End) > 24*time.Hour
 	}
 	return false
 }
@@ -1279,6 +1291,12 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 		high bool
 		dir  astro.Direction
 	}
+	part := func(m mark) string { // of a span entered at m and not left
+		if m.high {
+			return "evening"
+		}
+		return "morning"
+	}
 	// the crossings of both bounds in time order: each list is in order
 	marks := make([]mark, 0, len(lo)+len(hi))
 	for i, j := 0, 0; i < len(lo) || j < len(hi); {
@@ -1339,6 +1357,14 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 			}
 			start = time.Time{}
 		}
+	}
+	if d := c.zone().date(start); in && !start.IsZero() && c.inRange(d) {
+		// entered, and not left again while the crossings are known (the
+		// Sun in the band for weeks near a pole): the span is listed to the
+		// end of the last date, marked open
+		_, end := c.span(0)
+		c.events = append(c.events, Event{Kind: k, Start: start, End: end, Date: d, Part: part(entered), Low: low, High: high, Open: true})
+		seen[daysBetween(c.first, d)] = true
 	}
 	for i, d := 0, c.first; !d.After(c.last); i, d = i+1, d.Add(24*time.Hour) { // UTC dates: a day is 24 h
 		if seen[i] {

@@ -687,15 +687,26 @@ func appendDaily(b []byte, s *siteInfo, e Event) (_ []byte, title string, ok boo
 		// through its lower bound by a Sun that does not rise (polar
 		// night), is twilight glow: no Sun to look at
 		part, glow := e.Part, e.Part == "all-day" && e.Altitude <= s.flatRise && e.High > s.flatRise
-		if glow {
+		days := AroundTheClock(e) // near a pole the Sun may stay in the band for days
+		switch {
+		case days:
+			part = partDays
+		case glow:
 			part = partGlow
 		}
 		title = bt.title(part)
 		z := s.zone
 		b = z.appendDayMark(z.appendClock(append(append(b, title...), " from "...), e.Start), e.Start, e.Date)
-		b = z.appendDayMark(z.appendClock(append(b, " to "...), e.End), e.End, e.Date)
-		b = append(appendHM(append(b, " ("...), span(e.Start, e.End)), ')')
-		if e.Kind.Name != config.KindSunBand {
+		if e.Open {
+			b = append(b, " to past the end of this calendar"...)
+		} else {
+			b = z.appendDayMark(z.appendClock(append(b, " to "...), e.End), e.End, e.Date)
+			b = append(appendHM(append(b, " ("...), span(e.Start, e.End)), ')')
+		}
+		switch {
+		case days:
+			b = append(append(append(b, ": the Sun's centre stays between "...), between(e.Low, e.High)...), " day and night"...)
+		case e.Kind.Name != config.KindSunBand:
 			b = appendMerged(b, e, glow)
 		}
 		b = append(b, '.')
@@ -708,8 +719,11 @@ func appendDaily(b []byte, s *siteInfo, e Event) (_ []byte, title string, ok boo
 }
 
 // partGlow stands, in bandText.title, for the part "all-day" of a span in
-// which the Sun does not rise.
-const partGlow = "glow"
+// which the Sun does not rise; partDays for a span longer than a day.
+const (
+	partGlow = "glow"
+	partDays = "days"
+)
 
 // appendMerged appends to b, after a golden or blue hour's times, why a
 // span of part "all-day" or "night" is one span, with the Sun's highest
@@ -769,6 +783,8 @@ func (bt *bandText) title(p string) string {
 		part = "through midday"
 	case p == partGlow:
 		part = "twilight glow, Sun below the horizon"
+	case p == partDays:
+		part = "around the clock"
 	}
 	t := bt.base + " (" + part + ")"
 	bt.parts, bt.titles = append(bt.parts, p), append(bt.titles, t)
@@ -1018,11 +1034,11 @@ func noEventToday(k config.Kind) (string, string) {
 		return "No solar noon today", "No solar noon on this date: the Sun crosses the meridian just before the date begins and just after it ends"
 	case "golden-hour", "blue-hour":
 		return fmt.Sprintf("No %s begins today", name),
-			fmt.Sprintf("No %s begins on this date: the one that began the day before runs into it", name)
+			fmt.Sprintf("No %s begins on this date: the one that began before it lasts into it", name)
 	case "sun-altitude":
 		name = "crossing of " + degrees(k.Altitude)
 	case config.KindSunBand:
-		return "No band of the Sun begins today", fmt.Sprintf("No span with the Sun between %s and %s begins on this date: the one that began the day before runs into it", degrees(k.Altitude), degrees(k.High))
+		return "No band of the Sun begins today", fmt.Sprintf("No span with the Sun between %s and %s begins on this date: the one that began before it lasts into it", degrees(k.Altitude), degrees(k.High))
 	}
 	return fmt.Sprintf("No %s today", name),
 		fmt.Sprintf("No %s on this date: around this time of year it comes close to midnight and moves from one date to the next", name)

@@ -527,10 +527,15 @@ func stateText(s astro.State) string {
 
 func details(e *feed.Event, loc *time.Location) string {
 	var parts []string
-	if !e.End.IsZero() {
+	switch {
+	case e.Open:
+		parts = append(parts, "until past the end of the listing")
+	case !e.End.IsZero():
 		parts = append(parts, fmt.Sprintf("until %s%s (%s)", clock(e.End, loc), feed.DayMark(e.End, e.Date, loc), feed.Length(feed.ToSecond(e.End).Sub(feed.ToSecond(e.Start)), time.Minute)))
 	}
 	switch {
+	case feed.AroundTheClock(*e):
+		parts = append(parts, "around the clock")
 	case feed.MergedSpan(*e) && e.Part == "night":
 		parts = append(parts, fmt.Sprintf("evening and morning in one, Sun at least %.2f°", e.Altitude))
 	case feed.MergedSpan(*e):

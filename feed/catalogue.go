@@ -631,6 +631,8 @@ type entryWriter struct {
 	noted map[string]bool // notes already written, by family and date
 	cats  map[string][]string
 	buf   []byte
+	// out holds the entries written; its elements past its length are
+	// zero (keep clears those it drops), so that next need not zero them
 	out   []Entry
 	last  time.Time      // the last local date of the feed
 	alarm *time.Duration // the alarm of the kinds entry or plan being written, nil for the feed's
@@ -679,8 +681,8 @@ type textSpan struct{ entry, from, to, uid, title int }
 // dawn or dusk with its caution takes about 330 bytes, a sunrise 230.
 const textPerEntry = 384
 
-// keysChunk is the size of each array of entryWriter.keys: a new one
-// is started when a key does not fit in the rest of the last one.
+// keysChunk is the largest size of an array of entryWriter.keys: a new
+// one is started when a key does not fit in the rest of the last one.
 const keysChunk = 16 << 10
 
 // uidLen is the length of a UID: 24 hex digits and "@heliocal".
@@ -737,7 +739,9 @@ func (w *entryWriter) keep(key []byte) string {
 		return ""
 	}
 	if cap(w.keys)-len(w.keys) < len(key) {
-		w.keys = make([]byte, 0, max(keysChunk, len(key)))
+		// twice the last array, up to keysChunk: a feed whose only keys
+		// are a few notes' takes little
+		w.keys = make([]byte, 0, max(min(keysChunk, 2*cap(w.keys)), 1024, len(key)))
 	}
 	from := len(w.keys)
 	w.keys = append(w.keys, key...)
@@ -897,8 +901,7 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 	if e.Kind != spec.Kind {
 		kind = w.kindName(e.Kind)
 	}
-	w.out = append(w.out, Entry{})
-	en := &w.out[len(w.out)-1]
+	en := w.next()
 	en.Kind, en.Title, en.Start, en.Date, en.Alarm = kind, title, e.Start.Add(offset), e.Date, w.alarm
 	if e.Kind.Name == spec.Kind.Name {
 		en.Categories = st.cats
@@ -939,6 +942,18 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 		w.text = w.appendUID(w.text, key)
 	}
 	w.spans = append(w.spans, sp)
+}
+
+// next adds a zero entry to out and returns it. out's elements past its
+// length are zero (see entryWriter.out): the entry is not zeroed again
+// when there is room, which cost as much as writing it.
+func (w *entryWriter) next() *Entry {
+	if len(w.out) == cap(w.out) {
+		w.out = append(w.out, Entry{})
+	} else {
+		w.out = w.out[:len(w.out)+1]
+	}
+	return &w.out[len(w.out)-1]
 }
 
 func (w *entryWriter) note(n Note) {
@@ -1005,14 +1020,19 @@ func keep(es []Entry, from int, spec config.KindSpec) []Entry {
 		return es
 	}
 	out := es[:from]
-	for _, e := range es[from:] {
+	for i := from; i < len(es); i++ {
+		e := &es[i]
 		if !f.Allows(e.Date) {
 			continue
 		}
 		if minLen > 0 && !e.AllDay && !e.End.IsZero() && e.End.Sub(e.Start) < minLen {
 			continue
 		}
-		out = append(out, e)
+		if len(out) != i {
+			es[len(out)] = *e
+		}
+		out = out[:len(out)+1]
 	}
+	clear(es[len(out):]) // what entryWriter.next expects past the length
 	return out
 }

@@ -142,7 +142,7 @@ func (c *collector) lighting(k config.Kind) error {
 		return err
 	}
 	defer daylightBuffers.put(days)
-	needs := make([]bool, len(days))
+	needs := c.flags(len(days))
 	for i, dl := range days {
 		// a date whose only light is the date before's day, past midnight,
 		// has no day of its own and no polar night either: no lamps
@@ -420,9 +420,11 @@ func (c *collector) clockOnDay(day int64, clock time.Duration) time.Time {
 	return clockOn(time.Unix(day*secondsPerDay, 0).UTC(), clock, c.p.Location)
 }
 
-// lampText is room for the title, description and UID of a lamp period:
-// most take about 420 bytes.
-const lampText = 512
+// lampText is room for the title, description and UID of most lamp
+// periods: an evening period clipped by latest_off takes about 270 bytes,
+// one of lamps both that makes up for the other about 420. The text of a
+// kind that needs more grows as it is written.
+const lampText = 320
 
 // shownClock is an instant as the lamp entries show it: the local clock
 // to the second with the zone's abbreviation ("16:42:10 CET"), and to the

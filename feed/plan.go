@@ -53,8 +53,12 @@ func parsePlan(p *config.Plan) (*plan, error) {
 
 // planDate is a date a plan falls on, with the event that set it, if any.
 type planDate struct {
-	date   time.Time
-	anchor *Event // the event of the rule (RuleEvent, RuleWeekdayOf)
+	date time.Time
+	// the event of the rule (RuleEvent, RuleWeekdayOf), when anchored:
+	// its kind and instant
+	anchored bool
+	kind     config.Kind
+	at       time.Time
 }
 
 // feedEntries computes the entries of a feed's kinds and plans on the local
@@ -247,7 +251,8 @@ type kindTimes struct {
 }
 
 // dayCrossings are the Sun's crossings of an altitude within one local
-// date, and whether it is above the altitude when the date begins.
+// date, and whether it is above the altitude when the date begins (only
+// known, and only needed, for a date without crossings).
 type dayCrossings struct {
 	xs []astro.Crossing
 	up bool
@@ -311,11 +316,15 @@ func (kt *kindTimes) day(d time.Time) (dayCrossings, error) {
 		if err != nil {
 			return dayCrossings{}, err
 		}
-		h, err := eph.SunAltitude(o, start)
-		if err != nil {
-			return dayCrossings{}, err
+		dc := dayCrossings{xs: xs}
+		if len(xs) == 0 {
+			// the side the Sun stays on, for the date's note
+			h, err := eph.SunAltitude(o, start)
+			if err != nil {
+				return dayCrossings{}, err
+			}
+			dc.up = h > kt.alt
 		}
-		dc := dayCrossings{xs: xs, up: h > kt.alt}
 		kt.byDate[d] = dc
 		return dc, nil
 	}
@@ -405,12 +414,14 @@ func (sky *Sky) planDates(ctx context.Context, p Place, r config.DateRule, first
 	var out []planDate
 	switch r.Type {
 	case config.RuleEveryDay:
+		out = make([]planDate, 0, daysBetween(first, last)+1)
 		for d := first; !d.After(last); d = d.AddDate(0, 0, 1) {
 			out = append(out, planDate{date: d})
 		}
 		return out, nil
 	case config.RuleWeekly:
 		ahead := (int(r.Weekday-first.Weekday()) + 7) % 7
+		out = make([]planDate, 0, daysBetween(first, last)/7+1)
 		for d := first.AddDate(0, 0, ahead); !d.After(last); d = d.AddDate(0, 0, 7) {
 			out = append(out, planDate{date: d})
 		}
@@ -430,6 +441,12 @@ func (sky *Sky) planDates(ctx context.Context, p Place, r config.DateRule, first
 		return out, nil
 	}
 	c := &collector{ctx: ctx, sky: sky, p: p, first: first.AddDate(0, 0, -PlanMargin+1), last: last.AddDate(0, 0, PlanMargin-1)}
+	// the rule's events: their kind, instant and local date, by instant
+	type anchor struct {
+		kind    config.Kind
+		at, day time.Time
+	}
+	var evs []anchor
 	if _, phase := phaseKinds[r.Event.Name]; phase || r.Event.Name == "moon-phases" {
 		// the phases are the same for every site: found once per Sky, and
 		// a date rule needs no illumination
@@ -437,29 +454,33 @@ func (sky *Sky) planDates(ctx context.Context, p Place, r config.DateRule, first
 		if err != nil {
 			return nil, err
 		}
+		z := newZoneCache(p.Location)
 		for _, ph := range ps {
 			if name := phaseNames[ph.Kind]; r.Event.Name == name || r.Event.Name == "moon-phases" {
-				if d := localDate(ph.Time, p.Location); c.inRange(d) {
-					c.events = append(c.events, Event{Kind: config.Kind{Name: name}, Start: ph.Time, Date: d})
+				if d := z.date(ph.Time); c.inRange(d) {
+					evs = append(evs, anchor{config.Kind{Name: name}, ph.Time, d})
 				}
 			}
 		}
-	} else if err := c.add(r.Event); err != nil {
-		return nil, err
+	} else {
+		if err := c.add(r.Event); err != nil {
+			return nil, err
+		}
+		evs = make([]anchor, len(c.events))
+		for i, e := range c.events {
+			evs[i] = anchor{e.Kind, e.Start, e.Date}
+		}
 	}
-	slices.SortStableFunc(c.events, func(a, b Event) int { return a.Start.Compare(b.Start) })
-	seen := map[time.Time]bool{}
-	for i := range c.events {
-		e := &c.events[i]
-		d := e.Date
+	slices.SortStableFunc(evs, func(a, b anchor) int { return a.at.Compare(b.at) })
+	for _, e := range evs {
+		d := e.day
 		if r.Type == config.RuleWeekdayOf {
 			d = weekdayOf(d, r.Weekday, r.Relation)
 		}
-		if d.Before(first) || d.After(last) || seen[d] {
+		if d.Before(first) || d.After(last) || slices.ContainsFunc(out, func(o planDate) bool { return o.date.Equal(d) }) {
 			continue
 		}
-		seen[d] = true
-		out = append(out, planDate{date: d, anchor: e})
+		out = append(out, planDate{date: d, anchored: true, kind: e.kind, at: e.at})
 	}
 	return out, nil
 }
@@ -499,6 +520,19 @@ type planText struct {
 	startName  string // the start event in words, "astronomical dusk"
 	endName    string
 	counted    bool // the plan's dates are each once in its UID keys: no need to count them in seen
+	// the name in text of the kind of the anchors (inText), for the last
+	// kind asked
+	anchorKind config.Kind
+	anchorText string
+}
+
+// anchorName is inText(k), kept for the next entry: a plan's anchors are
+// mostly of one kind.
+func (pt *planText) anchorName(k config.Kind) string {
+	if pt.anchorText == "" || pt.anchorKind != k {
+		pt.anchorKind, pt.anchorText = k, inText(k)
+	}
+	return pt.anchorText
 }
 
 func newPlanText(pl *plan) *planText {
@@ -533,9 +567,9 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 	en := &w.out[len(w.out)-1]
 	from := len(w.text)
 	b := append(w.text, pt.lead...)
-	if pd.anchor != nil {
-		b = append(append(append(append(b, "Date: "...), pt.rule...), " ("...), inText(pd.anchor.Kind)...)
-		b = pd.anchor.Start.In(loc).AppendFormat(append(b, ' '), "Mon 2 Jan 2006 15:04 MST")
+	if pd.anchored {
+		b = append(append(append(append(b, "Date: "...), pt.rule...), " ("...), pt.anchorName(pd.kind)...)
+		b = pd.at.In(loc).AppendFormat(append(b, ' '), "Mon 2 Jan 2006 15:04 MST")
 		b = append(b, ").\n"...)
 	}
 	allDay := func() {

@@ -187,8 +187,8 @@ func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parse
 	last := col.last
 	col.spec, col.maxLit = config.KindSpec{}, 0
 	w := entryWriter{feedID: feedID, site: newSiteInfo(s), noted: map[string]bool{}, last: last, out: out}
-	w.text = textBuffers.get(pd.total * textPerEntry)
-	defer func() { textBuffers.put(w.text) }()
+	w.text, w.spans = textBuffers.get(pd.total*textPerEntry), textSpans.get(pd.total)
+	defer func() { textBuffers.put(w.text); textSpans.put(w.spans) }()
 	dates, uses := pd.dates, pd.uses
 	// the times of every kind the plans start or end at; an end may be on
 	// the day after the last date

@@ -911,9 +911,14 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 	if !e.End.IsZero() {
 		en.End = e.End.Add(offset)
 	}
-	en.Facts = Facts{Part: e.Part, Direction: e.Direction, Altitude: e.Altitude, Azimuth: e.Azimuth, Distance: e.Distance,
-		Illuminated: e.Illuminated, DayLength: e.DayLength, DirectSun: e.DirectSun, Lamp: e.Lamp, Short: e.Short,
-		Eclipse: e.EclipseFacts()}
+	// field by field into the zero entry: no Facts made and copied, and
+	// no copy of the event for EclipseFacts unless it is an eclipse
+	f := &en.Facts
+	f.Part, f.Direction, f.Altitude, f.Azimuth, f.Distance = e.Part, e.Direction, e.Altitude, e.Azimuth, e.Distance
+	f.Illuminated, f.DayLength, f.DirectSun, f.Lamp, f.Short = e.Illuminated, e.DayLength, e.DirectSun, e.Lamp, e.Short
+	if e.Solar != nil || e.Lunar != nil {
+		f.Eclipse = e.EclipseFacts()
+	}
 	if spec.AllDay || e.Kind.Name == "photoperiod" {
 		d := z.date(en.Start)
 		en.AllDay, en.Start, en.End, en.Date = true, d, d.AddDate(0, 0, 1), d

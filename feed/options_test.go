@@ -2,6 +2,7 @@ package feed
 
 import (
 	"context"
+	"reflect"
 	"testing"
 	"time"
 
@@ -59,5 +60,71 @@ func TestMinDuration(t *testing.T) {
 		if !e.AllDay && e.End.Sub(e.Start) < 45*time.Minute {
 			t.Errorf("kept a %s dark window on %s", e.End.Sub(e.Start), e.Date.Format(time.DateOnly))
 		}
+	}
+}
+
+// TestFilteredThenWritten: the entries a filter drops leave no trace in
+// the entries written after them, which go into the room the dropped ones
+// had (entryWriter.next does not zero it again). A golden-hour kind kept
+// on Fridays only, followed by a sunrise kind, gives the same sunrises as
+// a sunrise kind on its own (none with the end of a span), and the golden
+// hours it keeps are those of the filter.
+func TestFilteredThenWritten(t *testing.T) {
+	s := site(t, "vienna", 48.2, 16.4, "Europe/Vienna")
+	sk := sky(t, "2027-01-01", "2027-03-31")
+	first, last := date("2027-01-01"), date("2027-01-31")
+	golden := config.KindSpec{Kind: mustKinds(t, "golden-hour")[0], Weekdays: []string{"fri"}}
+	sunrise := config.KindSpec{Kind: mustKinds(t, "sunrise")[0]}
+	both, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{golden, sunrise}, first, last)
+	if err != nil {
+		t.Fatal(err)
+	}
+	alone, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{sunrise}, first, last)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var rises []Entry
+	spans := 0
+	for _, e := range both {
+		switch e.Kind {
+		case "sunrise":
+			rises = append(rises, e)
+		case "golden-hour":
+			spans++
+			if e.Date.Weekday() != time.Friday {
+				t.Errorf("golden hour on %s", e.Date.Format("Mon 2006-01-02"))
+			}
+		}
+	}
+	// January 2027 has five Fridays: 1, 8, 15, 22 and 29 (the Gregorian
+	// calendar), each with a morning and an evening golden hour at 48° N
+	if spans != 10 {
+		t.Errorf("%d golden hours, want 10", spans)
+	}
+	if !reflect.DeepEqual(rises, alone) {
+		t.Errorf("the sunrises after a filtered kind differ from the sunrises alone")
+	}
+}
+
+// TestKeepClearsDropped: keep leaves the room of the entries it drops
+// zero, as entryWriter.next expects of the room past the entries.
+func TestKeepClearsDropped(t *testing.T) {
+	es := make([]Entry, 0, 8)
+	for i := range 6 {
+		d := date("2027-01-01").AddDate(0, 0, i) // Fri 1 … Wed 6 January 2027
+		es = append(es, Entry{Kind: "sunset", Title: "Sunset", UID: "u", Date: d, Start: d, Facts: Facts{Part: "x", Azimuth: 240}})
+	}
+	out := keep(es, 1, config.KindSpec{Weekdays: []string{"sat", "sun"}})
+	if len(out) != 3 { // Fri 1 (before from), Sat 2, Sun 3
+		t.Fatalf("%d entries kept, want 3", len(out))
+	}
+	for i, e := range es[len(out):] {
+		if !reflect.DeepEqual(e, Entry{}) {
+			t.Errorf("dropped room %d not zero: %+v", i, e)
+		}
+	}
+	w := entryWriter{out: out}
+	if e := w.next(); !reflect.DeepEqual(*e, Entry{}) || len(w.out) != 4 {
+		t.Errorf("next gave %+v, %d entries", *e, len(w.out))
 	}
 }

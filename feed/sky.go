@@ -281,6 +281,14 @@ type buffers struct {
 	durations reuse[time.Duration]
 	flags     reuse[bool]
 	transits  []astro.Transit
+	marks     []bandMark // the crossings of a band's bounds (collector.band)
+}
+
+// bandMark is a crossing of one of a band's two bounds.
+type bandMark struct {
+	t    time.Time
+	high bool
+	dir  astro.Direction
 }
 
 // reuse hands out zeroed slices from a list kept from one chunk to the
@@ -1286,11 +1294,7 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 		return err
 	}
 	lo, hi := c.thresholds[low].xs, c.thresholds[high].xs
-	type mark struct {
-		t    time.Time
-		high bool
-		dir  astro.Direction
-	}
+	type mark = bandMark
 	part := func(m mark) string { // of a span entered at m and not left
 		if m.high {
 			return "evening"
@@ -1298,7 +1302,13 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 		return "morning"
 	}
 	// the crossings of both bounds in time order: each list is in order
-	marks := make([]mark, 0, len(lo)+len(hi))
+	var marks []mark
+	if c.scratch != nil {
+		marks = slices.Grow(c.scratch.marks[:0], len(lo)+len(hi))
+		defer func() { c.scratch.marks = marks[:0] }()
+	} else {
+		marks = make([]mark, 0, len(lo)+len(hi))
+	}
 	for i, j := 0, 0; i < len(lo) || j < len(hi); {
 		if j == len(hi) || i < len(lo) && !hi[j].Time.Before(lo[i].Time) {
 			marks = append(marks, mark{lo[i].Time, false, lo[i].Direction})
@@ -1314,8 +1324,8 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 	n0 := len(c.events) // this kind's spans start here
 	var start time.Time
 	var entered mark
-	var before []Event                                   // spans that start before the first date
-	seen := make([]bool, daysBetween(c.first, c.last)+1) // by date from first: a span starts on it
+	var before []Event                                // spans that start before the first date
+	seen := c.flags(daysBetween(c.first, c.last) + 1) // by date from first: a span starts on it
 	for _, m := range marks {
 		entering := (!m.high && m.dir == astro.Rising) || (m.high && m.dir == astro.Setting)
 		if entering && !in {

@@ -208,7 +208,7 @@ func (c *collector) darkWindows(k config.Kind) error {
 			continue
 		}
 		for _, w := range n.Windows {
-			e := Event{Kind: k, Start: w.Start, End: w.End, Date: date, Illuminated: c.maxLit}
+			e := Event{Kind: k, Start: w.Start, End: w.End, Date: date}
 			c.events = append(c.events, e)
 		}
 	}

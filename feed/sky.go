@@ -132,6 +132,10 @@ type Note struct {
 	// site's skyline (or horizon altitude) while it is up over a flat
 	// horizon at noon: behind the hills, not polar night.
 	Hidden bool
+	// SunUp: a twilight note of a date the Sun stays above the threshold
+	// on which the Sun does not set either (midnight sun): there is no
+	// twilight that night, only daylight.
+	SunUp bool
 }
 
 // Place is where events are computed: an observer and the zone whose local
@@ -927,10 +931,38 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 				}
 				n.Hidden = ok && c.upAtNoon(tr)
 			}
+			if up && twilight(family) {
+				if n.SunUp, err = c.sunStaysUp(start, end); err != nil {
+					return err
+				}
+			}
 			c.notes = append(c.notes, n)
 		}
 	}
 	return nil
+}
+
+func twilight(family string) bool {
+	return family == "civil" || family == "nautical" || family == "astronomical"
+}
+
+// sunStaysUp reports whether the Sun stays above the horizon (the altitude
+// of sunrise and sunset) from start to end, with no sunset or sunrise
+// between: a date without dusk or dawn is then one of midnight sun. Asked
+// only for such dates, near the poles.
+func (c *collector) sunStaysUp(start, end time.Time) (bool, error) {
+	th, err := c.threshold(c.p.Observer.RiseSetAltitude())
+	if err != nil {
+		return false, err
+	}
+	i, _ := slices.BinarySearchFunc(th.xs, start, func(x astro.Crossing, t time.Time) int { return x.Time.Compare(t) })
+	if i < len(th.xs) && th.xs[i].Time.Before(end) {
+		return false, nil // it sets or rises on the date
+	}
+	if i == 0 {
+		return th.upFirst, nil
+	}
+	return th.xs[i-1].Direction == astro.Rising, nil
 }
 
 // dayStarts returns, computed once for all kinds, the instants of the

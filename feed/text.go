@@ -951,10 +951,14 @@ func describeNote(s *siteInfo, n Note) (string, string) {
 		}
 	case "civil", "nautical", "astronomical":
 		deg := map[string]string{"civil": "6°", "nautical": "12°", "astronomical": "18°"}[n.Family]
-		if above {
+		switch {
+		case above && n.SunUp:
+			title = fmt.Sprintf("No %s dusk or dawn today: the Sun does not set", n.Family)
+			desc = "The Sun stays above the horizon all day and night"
+		case above:
 			title = fmt.Sprintf("No %s dusk or dawn tonight: %s twilight lasts all night", n.Family, n.Family)
 			desc = fmt.Sprintf("The Sun's centre stays less than %s below the horizon all night", deg)
-		} else {
+		default:
 			title = fmt.Sprintf("No %s twilight today: the Sun stays more than %s below the horizon", n.Family, deg)
 			desc = title
 		}
@@ -1057,8 +1061,14 @@ func describeSummary(s *siteInfo, d time.Time, length, delta time.Duration, evs 
 		title = fmt.Sprintf("Direct Sun %s", hm(length))
 		lengthName = "Direct Sun over the skyline" // what it is: in the calendar's description (kindMeaning)
 	}
+	midnightSun := slices.ContainsFunc(notes, func(n Note) bool {
+		return n.Family == "sun-horizon" && n.State == astro.AlwaysAbove
+	})
 	var said []string // dawn and dusk may give one note twice
 	for _, n := range notes {
+		if n.SunUp && midnightSun {
+			continue // "Midnight sun: the Sun does not set today" says it
+		}
 		t, _ := describeNote(s, n)
 		if !slices.Contains(said, t) {
 			said = append(said, t)

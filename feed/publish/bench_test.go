@@ -106,7 +106,7 @@ func BenchmarkPublishFleet(b *testing.B) {
 
 // BenchmarkWriteBundle measures the writer alone: 50 feeds of 1.7 MB (the
 // size of a 400-day feed of the daily kinds) written to a fresh directory
-// ("new": temporary file, write, chmod, fsync, rename, directory fsync), then
+// ("new": temporary file, write, fsync, rename, directory fsync), then
 // the same bundle again ("unchanged": read and compare only).
 func BenchmarkWriteBundle(b *testing.B) {
 	const n, size = 50, 1_700_000

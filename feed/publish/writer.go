@@ -24,7 +24,7 @@ import (
 const DefaultTempMaxAge = 15 * time.Minute
 
 // FileMode is the mode of every published file: readable by a web server
-// running as another user. (os.CreateTemp makes 0600.)
+// running as another user, whatever the umask (see createTemp).
 const FileMode fs.FileMode = 0o644
 
 // DirMode is the mode of the output directory and of any parent directory
@@ -70,7 +70,8 @@ type Writer struct {
 	// means DefaultRunMaxAge. See Publish.
 	RunMaxAge time.Duration
 
-	// createTemp creates the temporary file; nil means os.CreateTemp.
+	// createTemp creates the temporary file; nil means the package's
+	// createTemp.
 	// Overridden by tests to inject failures.
 	createTemp func(dir, pattern string) (tempFile, error)
 	// step, when set, is told about each change a commit makes to the
@@ -118,7 +119,7 @@ const (
 func (w *Writer) tempPattern(name string) string { return "." + name + ".tmp-*" }
 
 // isTempName reports whether base is one of our temporary names:
-// "." + final name + ".tmp-" + the digits os.CreateTemp puts for "*".
+// "." + final name + ".tmp-" + the digits createTemp puts for "*".
 func isTempName(base string) bool {
 	if !strings.HasPrefix(base, ".") {
 		return false

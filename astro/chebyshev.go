@@ -2,7 +2,6 @@ package astro
 
 import (
 	"math"
-	"runtime"
 	"slices"
 	"sync"
 )
@@ -98,35 +97,29 @@ func slowNodes(jde0 float64, n int) (vals [3][]float64) {
 			tau[i*sunChebNodes+j] = (mid + 0.5*sunChebDays*xs[j] - J2000) / julianMillennium
 		}
 	}
-	// The nodes are shared out among the cores, each summing L, B and R at
-	// its own nodes: a node's value goes through the same operations in the
-	// same order whichever goroutine sums it (the nodes' rotations are
-	// independent of one another), and the shares are even, where one
-	// goroutine per coordinate left a core waiting on L, the longest
-	// series. This is most of the fit's cost, which the daily samples wait
-	// for.
-	slowTerms, _ := vsopParts()
+	// L, B and R are summed on their own goroutines (each in the same
+	// order as alone): their sums are independent, and this is most of
+	// the fit's cost, which the daily samples wait for. The slow series
+	// have 595 terms (L), 154 (B) and 670 (R): R on a goroutine of its
+	// own, L then B on the calling one, which shares two cores about
+	// evenly. (Sharing the nodes out instead, each goroutine summing its
+	// half of every block, took 30 % more instructions, for a wall time no
+	// shorter.)
+	splitTerms()
 	for v := range 3 {
 		vals[v] = make([]float64, m)
 	}
-	share := func(j0, j1 int) {
-		for v := range 3 {
-			slowSum(vals[v], slowTerms[v], tau, n, j0, j1)
-		}
-	}
-	parts := min(runtime.GOMAXPROCS(0), sunChebNodes)
 	var wg sync.WaitGroup
-	for p := 1; p < parts; p++ {
-		wg.Go(func() { share(p*sunChebNodes/parts, (p+1)*sunChebNodes/parts) })
-	}
-	share(0, sunChebNodes/parts)
+	wg.Go(func() { slowSum(vals[2], slowTerms[2], tau, n) })
+	slowSum(vals[0], slowTerms[0], tau, n)
+	slowSum(vals[1], slowTerms[1], tau, n)
 	wg.Wait()
 	return vals
 }
 
 // slowSum adds to vals the terms of series (by power of τ) at the nodes
-// j0..j1−1 of each of the n blocks of tau, as slowNodes describes.
-func slowSum(vals []float64, series [][]vsopTerm, tau []float64, n, j0, j1 int) {
+// tau of n blocks, as slowNodes describes.
+func slowSum(vals []float64, series [][]vsopTerm, tau []float64, n int) {
 	const slowRestart = 32
 	const h = sunChebDays / julianMillennium // a block in millennia
 	m := len(vals)
@@ -135,34 +128,31 @@ func slowSum(vals []float64, series [][]vsopTerm, tau []float64, n, j0, j1 int) 
 	for k := range m {
 		tp[k] = 1
 	}
-	w := j1 - j0
 	for _, terms := range series {
 		clear(part)
 		for _, t := range terms {
 			sr, cr := math.Sincos(t.c * h)
 			var C, S [sunChebNodes]float64 // node j's rotation: independent of the others'
 			for i := range n {
-				ps := part[i*sunChebNodes+j0 : i*sunChebNodes+j1]
-				ts := tau[i*sunChebNodes+j0 : i*sunChebNodes+j1]
+				ps := part[i*sunChebNodes : (i+1)*sunChebNodes]
+				ts := tau[i*sunChebNodes : (i+1)*sunChebNodes]
 				if i%slowRestart == 0 {
-					for j := range w {
+					for j := range sunChebNodes {
 						S[j], C[j] = math.Sincos(t.b + t.c*ts[j])
 					}
 				} else {
-					for j := range w {
+					for j := range sunChebNodes {
 						C[j], S[j] = C[j]*cr-S[j]*sr, S[j]*cr+C[j]*sr
 					}
 				}
-				for j := range w {
+				for j := range sunChebNodes {
 					ps[j] += t.a * C[j]
 				}
 			}
 		}
-		for i := range n {
-			for k := i*sunChebNodes + j0; k < i*sunChebNodes+j1; k++ {
-				vals[k] += part[k] * tp[k]
-				tp[k] *= tau[k]
-			}
+		for k := range m {
+			vals[k] += part[k] * tp[k]
+			tp[k] *= tau[k]
 		}
 	}
 }
@@ -182,7 +172,7 @@ func (s *earthSeries) slowAt(jde float64) (L, B, R float64) {
 func (s *earthSeries) at(jde float64) (L, B, R float64) {
 	L, B, R = s.slowAt(jde)
 	tau := (jde - J2000) / julianMillennium
-	_, fastTerms := vsopParts()
+	splitTerms()
 	L += evalVSOP(fastTerms[0], tau)
 	B += evalVSOP(fastTerms[1], tau)
 	R += evalVSOP(fastTerms[2], tau)
@@ -221,7 +211,7 @@ func (s *earthSeries) daily(jdes []float64, buf *sampleBuffers) (L, B, R []float
 	// and sine rotated together from sample to sample: the terms' rotations
 	// are independent of one another
 	tp := floats(&buf.tp, n) // τᵖ
-	_, fastTerms := vsopParts()
+	splitTerms()
 	for v := range 3 {
 		for k := range n {
 			tp[k] = 1
@@ -279,11 +269,14 @@ func floats(b *[]float64, n int) []float64 {
 	return *b
 }
 
-// vsopParts returns the VSOP87D series of L, B and R split at fastPeriod,
-// slow terms and fast: the fast ones are the Moon's pull on the Earth and
-// its harmonics (about 150 of the 1,567 terms). They are split at first use
-// (the Sun's ephemeris), not when the program starts.
-var vsopParts = sync.OnceValues(splitVSOP)
+// slowTerms and fastTerms are the VSOP87D series of L, B and R split at
+// fastPeriod: the fast ones are the Moon's pull on the Earth and its
+// harmonics (about 150 of the 1,567 terms). They are split at first use
+// (splitTerms, called by each user: the Sun's ephemeris), not when the
+// program starts.
+var slowTerms, fastTerms [3][][]vsopTerm
+
+var splitTerms = sync.OnceFunc(func() { slowTerms, fastTerms = splitVSOP() })
 
 func splitVSOP() (slow, fast [3][][]vsopTerm) {
 	cut := 2 * math.Pi * julianMillennium / fastPeriod // rad per millennium

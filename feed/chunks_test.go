@@ -4,6 +4,7 @@ import (
 	"cmp"
 	"context"
 	"errors"
+	"math"
 	"math/rand/v2"
 	"runtime"
 	"slices"
@@ -125,9 +126,8 @@ func TestEventChunksOrderAndStop(t *testing.T) {
 }
 
 // sortByKey and orderByKey give what a stable sort gives, for runs in
-// order, out of order (more than maxRuns runs for orderByKey, which then
-// sorts), empty, with ties within and across runs, and with keys bunched
-// in a few places (crowded buckets).
+// order, out of order, empty, with ties within and across runs, and with
+// keys bunched in a few places (crowded buckets).
 func TestSortByKey(t *testing.T) {
 	type item struct{ key, id int64 }
 	var scratch orderScratch
@@ -167,6 +167,14 @@ func TestSortByKey(t *testing.T) {
 		if !slices.Equal(got, want) {
 			t.Fatalf("runs %v of %v: merged %v, want %v", bounds, xs, got, want)
 		}
+	}
+	// keys as far apart as int64 allows (the buckets' width is then 2⁶³)
+	xs := []item{{math.MaxInt64, 0}, {0, 1}, {math.MinInt64, 2}, {math.MaxInt64, 3}, {math.MinInt64, 4}}
+	want := []item{{math.MinInt64, 2}, {math.MinInt64, 4}, {0, 1}, {math.MaxInt64, 0}, {math.MaxInt64, 3}}
+	got := slices.Clone(xs)
+	orderByKey(got, &scratch, func(x *item) int64 { return x.key })
+	if !slices.Equal(got, want) {
+		t.Errorf("extreme keys: %v, want %v", got, want)
 	}
 }
 

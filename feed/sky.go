@@ -339,105 +339,86 @@ func eventsPerDate(specs []config.KindSpec) int {
 	return n
 }
 
-// maxRuns is the number of ordered runs above which orderByKey sorts
-// instead of merging.
-const maxRuns = 64
-
 // orderScratch is the working memory of orderByKey, kept from one call to
 // the next.
 type orderScratch struct {
-	keys  []int64
-	order []int32
+	keys         []int64
+	order        []int32
+	starts, next []int32 // stableOrder's buckets
 }
 
 // orderByKey puts xs in the order of key, equal keys in the order of xs (a
-// stable sort, as sortByKey gives), in place, for xs made of a few runs
-// already in order (each kind appends its own run of events): the runs are
-// merged through a heap of their next keys into a list of positions, and
-// the items are then moved along the cycles of that list, each once, so
-// that no second buffer of items is touched. With more than maxRuns runs
-// the positions are sorted instead.
+// stable sort), in place: the positions are put in order by stableOrder,
+// and the items are then moved along the cycles of that order, each once,
+// so that no second buffer of items is touched. Items already in order are
+// left as they are.
 func orderByKey[T any](xs []T, s *orderScratch, key func(*T) int64) {
 	n := len(xs)
 	ks := slices.Grow(s.keys[:0], n)[:n]
 	s.keys = ks
-	var starts [maxRuns + 1]int
-	runs := 0
+	sorted := true
 	for i := range xs {
 		ks[i] = key(&xs[i])
-		if i == 0 || ks[i] < ks[i-1] {
-			if runs == maxRuns {
-				runs = -1
-				for i := i + 1; i < n; i++ {
-					ks[i] = key(&xs[i])
-				}
-				break
-			}
-			starts[runs] = i
-			runs++
+		if i > 0 && ks[i] < ks[i-1] {
+			sorted = false
 		}
 	}
-	if runs == 0 || runs == 1 {
-		return // in order already
+	if sorted {
+		return
 	}
-	order := slices.Grow(s.order[:0], n)
-	if runs < 0 {
-		for i := range n {
-			order = append(order, int32(i))
-		}
-		slices.SortStableFunc(order, func(a, b int32) int { return cmp.Compare(ks[a], ks[b]) })
-	} else {
-		starts[runs] = n
-		order = heapMerge(order, ks, starts[:runs+1])
-	}
-	s.order = order
-	permute(xs, order)
+	permute(xs, stableOrder(ks, s))
 }
 
-// heapMerge appends to order the positions of the keys ks, made of the
-// ordered runs ks[starts[r]:starts[r+1]], in the order of their keys (the
-// earlier run first on ties), through a heap of the runs' next keys.
-func heapMerge(order []int32, ks []int64, starts []int) []int32 {
-	runs := len(starts) - 1
-	var pos, end [maxRuns]int
-	var heap [maxRuns]int // runs by their next key (the earlier run on ties), least first
-	for r := range runs {
-		pos[r], end[r] = starts[r], starts[r+1]
-		heap[r] = r // the runs' first keys need not be in order: sift them
+// stableOrder returns the positions of keys (at least one) in the order of
+// their keys, equal keys by position (what a stable sort gives): the
+// positions go by a counting sort into buckets of equal width in key, a
+// power of two (a shift finds the bucket, not a division), two to four
+// positions to a bucket (an hour or two of a site's daily events), and
+// each bucket is put in order by insertion (by slices.SortStableFunc when
+// it holds many). A site's events come as one run per kind, each in order:
+// this takes a few steps per event, where merging the runs through a heap
+// took a comparison per level of the heap. The slices are s's, overwritten
+// by the next call.
+func stableOrder(keys []int64, s *orderScratch) []int32 {
+	n := len(keys)
+	lo, hi := keys[0], keys[0]
+	for _, k := range keys {
+		lo, hi = min(lo, k), max(hi, k)
 	}
-	less := func(a, b int) bool {
-		ka, kb := ks[pos[a]], ks[pos[b]]
-		return ka < kb || ka == kb && a < b
+	span := uint64(hi) - uint64(lo)
+	shift := 0
+	for span>>shift > uint64(n/2) {
+		shift++
 	}
-	down := func(i, m int) {
-		for {
-			c := 2*i + 1
-			if c >= m {
-				return
-			}
-			if c+1 < m && less(heap[c+1], heap[c]) {
-				c++
-			}
-			if !less(heap[c], heap[i]) {
-				return
-			}
-			heap[i], heap[c] = heap[c], heap[i]
-			i = c
+	nb := int(span>>shift) + 1 // at most n/2 + 1
+	bucket := func(k int64) uint64 { return (uint64(k) - uint64(lo)) >> shift }
+	starts := slices.Grow(s.starts[:0], nb+1)[:nb+1] // bucket b holds order[starts[b]:starts[b+1]]
+	clear(starts)
+	for _, k := range keys {
+		starts[bucket(k)+1]++
+	}
+	for b := range nb {
+		starts[b+1] += starts[b]
+	}
+	next := append(s.next[:0], starts[:nb]...)
+	order := slices.Grow(s.order[:0], n)[:n]
+	for i, k := range keys {
+		b := bucket(k)
+		order[next[b]] = int32(i)
+		next[b]++
+	}
+	s.starts, s.next, s.order = starts, next, order
+	for b := range nb {
+		run := order[starts[b]:starts[b+1]]
+		if len(run) > 32 {
+			slices.SortStableFunc(run, func(x, y int32) int { return cmp.Compare(keys[x], keys[y]) })
+			continue
 		}
-	}
-	m := runs
-	for i := m/2 - 1; i >= 0; i-- {
-		down(i, m)
-	}
-	for m > 0 {
-		r := heap[0]
-		order = append(order, int32(pos[r]))
-		pos[r]++
-		if pos[r] == end[r] {
-			m--
-			heap[0] = heap[m]
+		for j := 1; j < len(run); j++ {
+			for m := j; m > 0 && keys[run[m]] < keys[run[m-1]]; m-- {
+				run[m], run[m-1] = run[m-1], run[m]
+			}
 		}
-		down(0, m)
 	}
 	return order
 }
@@ -491,8 +472,8 @@ func (s *Sky) eventsFor(ctx context.Context, p Place, specs []config.KindSpec, f
 		return nil, nil, fmt.Errorf("feed: %w", err)
 	}
 	// Each kind appends its own run of events (and of notes), in order or
-	// nearly so; the runs of events are then merged in place
-	// (orderByKey), the notes put in order by buckets (sortByKey).
+	// nearly so; the events are then put in order in place (orderByKey),
+	// the notes into a second slice (sortByKey).
 	for _, k := range specs {
 		c.maxLit, c.spec = k.MaxIllumination, k
 		if err := c.add(k.Kind); err != nil {
@@ -506,52 +487,19 @@ func (s *Sky) eventsFor(ctx context.Context, p Place, specs []config.KindSpec, f
 }
 
 // sortByKey appends to out the items of xs in the order of key, equal keys
-// in the order of xs (a stable sort), moving each item once: the items go
-// by a counting sort into buckets of equal width in key, about four to a
-// bucket (a few hours of a site's daily events), and each bucket is put in
-// order by insertion (by slices.SortStableFunc when it holds many).
+// in the order of xs (a stable sort, by stableOrder), moving each item
+// once.
 func sortByKey[T any](xs []T, out []T, key func(*T) int64) []T {
 	n := len(xs)
 	if n == 0 {
 		return out
 	}
 	keys := make([]int64, n)
-	lo, hi := key(&xs[0]), key(&xs[0])
 	for i := range xs {
-		k := key(&xs[i])
-		keys[i], lo, hi = k, min(lo, k), max(hi, k)
-	}
-	nb := n/4 + 1
-	width := uint64(hi-lo)/uint64(nb) + 1
-	bucket := func(k int64) int { return int(uint64(k-lo) / width) }
-	starts := make([]int32, nb+1) // bucket b holds order[starts[b]:starts[b+1]]
-	for _, k := range keys {
-		starts[bucket(k)+1]++
-	}
-	for b := range nb {
-		starts[b+1] += starts[b]
-	}
-	order := make([]int32, n)
-	next := slices.Clone(starts[:nb])
-	for i, k := range keys {
-		b := bucket(k)
-		order[next[b]] = int32(i)
-		next[b]++
-	}
-	for b := range nb {
-		run := order[starts[b]:starts[b+1]]
-		if len(run) > 32 {
-			slices.SortStableFunc(run, func(x, y int32) int { return cmp.Compare(keys[x], keys[y]) })
-			continue
-		}
-		for j := 1; j < len(run); j++ {
-			for m := j; m > 0 && keys[run[m]] < keys[run[m-1]]; m-- {
-				run[m], run[m-1] = run[m-1], run[m]
-			}
-		}
+		keys[i] = key(&xs[i])
 	}
 	out = slices.Grow(out, n)
-	for _, i := range order {
+	for _, i := range stableOrder(keys, &orderScratch{}) {
 		out = append(out, xs[i])
 	}
 	return out

@@ -198,7 +198,7 @@ func (j *jsonSink) event(e *feed.Event) {
 		b = appendJSONString(b, e.Part)
 	}
 	switch {
-	case k.noon || feed.MergedSpan(*e):
+	case k.noon || e.Part != "" && feed.MergedSpan(*e): // a merged span has a part: most events are spared the call
 		b = append(b, ",\n      \"altitude_deg\": "...)
 		b = appendRounded(b, e.Altitude, 4)
 	case k.rise:

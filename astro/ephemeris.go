@@ -370,11 +370,14 @@ func (e *Ephemeris) AppendSunCrossings(dst [][]Crossing, o Observer, altitudes [
 		dst = append(dst, nil)
 	}
 	dst = dst[:len(altitudes)]
+	// instants compared as Unix nanoseconds, which hold the whole range
+	// (MinTime..MaxTime and the margins)
+	fromNs, toNs := from.UnixNano(), to.UnixNano()
 	for i, buf := range bufs {
 		cs := slices.Grow(dst[i][:0], len(buf))
 		for _, c := range buf {
 			t := timeFromUnix(c.t)
-			if t.Before(from) || !t.Before(to) {
+			if ns := t.UnixNano(); ns < fromNs || ns >= toNs {
 				continue
 			}
 			d := Setting

@@ -65,5 +65,5 @@ func unixSeconds(t time.Time) float64 {
 func timeFromUnix(sec float64) time.Time {
 	whole := math.Floor(sec)
 	us := math.Round((sec - whole) * 1e6)
-	return time.Unix(int64(whole), 0).Add(time.Duration(us) * time.Microsecond).UTC()
+	return time.Unix(int64(whole), int64(us)*1000).UTC() // 1e6 µs is the next second
 }

@@ -515,6 +515,7 @@ type collector struct {
 	lengths      []time.Duration // day lengths for first-1..last, computed once
 	lengthBefore time.Duration   // the day length of first-2, for a sunset on first
 	starts       []time.Time     // local midnights beginning first-1..last+2, computed once
+	dates        []time.Time     // the dates first..last, computed once (dayDates)
 	thresholds   map[float64]*threshold
 	maxLit       float64         // dark-window: the Moon's largest illuminated fraction still dark
 	spec         config.KindSpec // the options of the kind being added (lighting)
@@ -827,22 +828,24 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 	xs, up := th.xs, th.upFirst
 	c.events = slices.Grow(c.events, len(xs))
 	starts := c.dayStarts()
-	for i, d := 0, c.first; !d.After(c.last); i, d = i+1, d.Add(24*time.Hour) { // UTC dates: a day is 24 h
-		start, end := starts[i+1], starts[i+2]
-		for len(xs) > 0 && xs[0].Time.Before(start) {
+	for i, d := range c.dayDates() {
+		// instants compared as Unix nanoseconds, which hold every instant
+		// astro serves (1800–2200), without time.Time.Before's call
+		start, end := starts[i+1].UnixNano(), starts[i+2].UnixNano()
+		for len(xs) > 0 && xs[0].Time.UnixNano() < start {
 			up = xs[0].Direction == astro.Rising
 			xs = xs[1:]
 		}
 		crossed := false
 		keep := -1 // with a skyline: only the date's first appearance, last disappearance
 		if horizon && alt == skylineKey {
-			for j := 0; j < len(xs) && xs[j].Time.Before(end); j++ {
+			for j := 0; j < len(xs) && xs[j].Time.UnixNano() < end; j++ {
 				if xs[j].Direction == dir && (keep < 0 || dir == astro.Setting) {
 					keep = j
 				}
 			}
 		}
-		for j := 0; len(xs) > 0 && xs[0].Time.Before(end); j++ {
+		for j := 0; len(xs) > 0 && xs[0].Time.UnixNano() < end; j++ {
 			x := xs[0]
 			xs = xs[1:]
 			up, crossed = x.Direction == astro.Rising, true
@@ -880,7 +883,7 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 				n.Hidden = ok && c.upAtNoon(tr)
 			}
 			if up && twilight(family) {
-				if n.SunUp, err = c.sunStaysUp(start, end); err != nil {
+				if n.SunUp, err = c.sunStaysUp(starts[i+1], starts[i+2]); err != nil {
 					return err
 				}
 			}
@@ -911,6 +914,18 @@ func (c *collector) sunStaysUp(start, end time.Time) (bool, error) {
 		return th.upFirst, nil
 	}
 	return th.xs[i-1].Direction == astro.Rising, nil
+}
+
+// dayDates returns, computed once for all kinds, the dates first..last
+// (00:00 UTC, 24 h apart).
+func (c *collector) dayDates() []time.Time {
+	if c.dates == nil {
+		c.dates = c.times(daysBetween(c.first, c.last) + 1)
+		for i := range c.dates {
+			c.dates[i] = c.first.Add(time.Duration(i) * 24 * time.Hour)
+		}
+	}
+	return c.dates
 }
 
 // dayStarts returns, computed once for all kinds, the instants of the

@@ -678,8 +678,11 @@ func (w *entryWriter) kindName(k config.Kind) string {
 type textSpan struct{ entry, from, to, uid, title int }
 
 // textPerEntry is room for the description and UID of most entries: a
-// dawn or dusk with its caution takes about 330 bytes, a sunrise 230.
-const textPerEntry = 384
+// dawn or dusk with its caution takes about 190 bytes with its title, a
+// sunrise 150, a golden hour 160, a lamp period 220–270, a plan 250–300.
+// A calendar keeps all of its buffer (keepText) until it is released, so
+// room to spare is memory the collector must sweep with every calendar.
+const textPerEntry = 256
 
 // keysChunk is the largest size of an array of entryWriter.keys: a new
 // one is started when a key does not fit in the rest of the last one.

@@ -198,8 +198,9 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 	w := entryWriter{feedID: feedID, site: newSiteInfo(s), noted: map[string]bool{}, last: civil(last), keepText: keepText}
 	w.out = releasedEntries.get(days*(len(specs)+1) + room)
 	if keepText {
-		// the text of every kind, one after the other
-		w.text = textBuffers.get(days * len(specs) * textPerEntry)
+		// the text of every kind, one after the other, and of the plans
+		// (planEntries) after them
+		w.text = textBuffers.get((days*len(specs) + room) * textPerEntry)
 	} else {
 		w.text = textBuffers.get(days * textPerEntry)
 	}

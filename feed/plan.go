@@ -99,7 +99,7 @@ func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed,
 	if err != nil {
 		return nil, nil, err
 	}
-	if es, err = sky.planEntries(col, s, f.ID, parsed, kinds, pd, es); err != nil {
+	if es, text, err = sky.planEntries(col, s, f.ID, parsed, kinds, pd, es, text); err != nil {
 		return nil, nil, err
 	}
 	return sortEntries(es), text, nil
@@ -118,7 +118,7 @@ func (sky *Sky) PlanEntries(ctx context.Context, s *config.Site, feedID string, 
 	if err != nil {
 		return nil, err
 	}
-	es, err := sky.planEntries(col, s, feedID, parsed, kinds, pd, make([]Entry, 0, pd.total))
+	es, _, err := sky.planEntries(col, s, feedID, parsed, kinds, pd, make([]Entry, 0, pd.total), nil)
 	if err != nil {
 		return nil, err
 	}
@@ -183,12 +183,24 @@ func (sky *Sky) allPlanDates(col *collector, parsed []*plan) (planDates, error) 
 // unsorted. A time of the Sun that the feed's kinds did not already need is
 // found on the plans' dates only, unless they are so many that one pass
 // over the window costs less.
-func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parsed []*plan, kinds []config.KindSpec, pd planDates, out []Entry) ([]Entry, error) {
+//
+// text, when not nil, is the calendar's text buffer (entries with
+// keepText): the plans' texts are written after the kinds' and their
+// strings are substrings of it, which is returned, when it has room for
+// them; otherwise, and when text is nil, they are copies and text is
+// returned as it is.
+func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parsed []*plan, kinds []config.KindSpec, pd planDates, out []Entry, text []byte) ([]Entry, []byte, error) {
 	last := col.last
 	col.spec, col.maxLit = config.KindSpec{}, 0
 	w := entryWriter{feedID: feedID, site: newSiteInfo(s), noted: map[string]bool{}, last: last, out: out}
-	w.text, w.spans = textBuffers.get(pd.total*textPerEntry), textSpans.get(pd.total)
-	defer func() { textBuffers.put(w.text); textSpans.put(w.spans) }()
+	w.spans = textSpans.get(pd.total)
+	defer func() { textSpans.put(w.spans) }()
+	if text != nil && cap(text)-len(text) >= pd.total*textPerEntry {
+		w.text, w.keepText, w.flushed = text, true, len(text)
+	} else {
+		w.text = textBuffers.get(pd.total * textPerEntry)
+		defer func() { textBuffers.put(w.text) }()
+	}
 	dates, uses := pd.dates, pd.uses
 	// the times of every kind the plans start or end at; an end may be on
 	// the day after the last date
@@ -196,17 +208,17 @@ func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parse
 	times := map[config.Kind]*kindTimes{}
 	for _, ks := range kinds {
 		if kt, ok, err := col.sunTimes(ks.Kind, uses[ks.Kind]); err != nil {
-			return nil, err
+			return nil, nil, err
 		} else if ok {
 			times[ks.Kind] = kt
 			continue
 		}
 		kt, err := col.kindTimes(ks.Kind, nil)
 		if err != nil {
-			return nil, err
+			return nil, nil, err
 		}
 		if kt, err = next.kindTimes(ks.Kind, kt); err != nil {
-			return nil, err
+			return nil, nil, err
 		}
 		times[ks.Kind] = kt
 	}
@@ -224,12 +236,15 @@ func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parse
 		}
 		for _, pd := range dates[i] {
 			if err := w.plan(pl, pt, pd, times, cats); err != nil {
-				return nil, fmt.Errorf("plan %q: %w", pl.cfg.Title, err)
+				return nil, nil, fmt.Errorf("plan %q: %w", pl.cfg.Title, err)
 			}
 		}
 	}
 	w.flushText()
-	return w.out, nil
+	if w.keepText {
+		return w.out, w.text, nil
+	}
+	return w.out, text, nil
 }
 
 // kindTimes are the events of one kind by local date, and its notes; for

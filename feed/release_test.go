@@ -4,6 +4,7 @@ import (
 	"context"
 	"strings"
 	"testing"
+	"time"
 
 	"heliocal/config"
 )
@@ -30,5 +31,50 @@ func TestReleaseOverwritesText(t *testing.T) {
 	cal.Release()
 	if strings.Trim(desc, "\x00") != "" || strings.Trim(uid, "\x00") != "" {
 		t.Errorf("after Release the kept description reads %q and the UID %q: Release must clear the text it hands back", desc, uid)
+	}
+}
+
+// A feed's plans write their texts into the calendar's buffer after the
+// kinds' (planEntries with the buffer of entries): the same texts as the
+// plans alone get (PlanEntries, which copies them), and handed back with
+// the rest on Release.
+func TestPlanTextInCalendarBuffer(t *testing.T) {
+	s := site(t, "plans", 48.2, 16.4, "Europe/Vienna")
+	sk := sky(t, "2027-01-01", "2027-03-31")
+	f := &config.Feed{ID: "plans", Site: s.ID, Kinds: []config.KindSpec{{Kind: mustKinds(t, "sunrise")[0]}},
+		Plans: []config.Plan{{Title: "Walk", Date: "every saturday", Start: "sunrise+30m", For: config.Duration(time.Hour)}}}
+	first, last := date("2027-01-15"), date("2027-02-15")
+	cal, err := sk.Calendar(context.Background(), s, f, first, last, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	alone, err := sk.PlanEntries(context.Background(), s, f.ID, f.Plans, first, last)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var kept []string // the plans' descriptions as the calendar has them
+	for _, e := range cal.Entries {
+		if e.Kind != KindPlan {
+			continue
+		}
+		if len(kept) >= len(alone) {
+			t.Fatalf("more plan entries in the calendar than the %d of the plans alone", len(alone))
+		}
+		a := alone[len(kept)]
+		if e.UID != a.UID || e.Description != a.Description || e.Title != a.Title {
+			t.Errorf("plan entry %d: %q %q, alone %q %q", len(kept), e.UID, e.Description, a.UID, a.Description)
+		}
+		kept = append(kept, e.Description)
+	}
+	// Saturdays 16, 23 and 30 January, 6 and 13 February 2027 (the
+	// Gregorian calendar)
+	if len(kept) != 5 || len(alone) != 5 {
+		t.Fatalf("%d plan entries in the calendar, %d alone, want 5", len(kept), len(alone))
+	}
+	cal.Release()
+	for _, d := range kept {
+		if strings.Trim(d, "\x00") != "" {
+			t.Errorf("after Release a plan's description reads %q: it is not in the calendar's text", d)
+		}
 	}
 }

@@ -731,18 +731,35 @@ const (
 // Sun stays under the band's upper bound all day (over its lower bound all
 // night); glow says that the Sun does not rise in the span.
 func appendMerged(b []byte, e Event, glow bool) []byte {
+	alt := degreesWithin(e.Altitude, e.Low, e.High)
 	switch {
 	case glow:
 		b = append(b, ": the Sun does not rise (its centre at most "...)
-		b = append(append(b, degrees(e.Altitude)...), "), the light is twilight glow and the morning and evening spans meet"...)
+		b = append(append(b, alt...), "), the light is twilight glow and the morning and evening spans meet"...)
 	case e.Part == "all-day":
 		b = append(append(b, ": the Sun's centre stays below "...), signedDegrees(e.High)...)
-		b = append(append(append(b, " (at most "...), degrees(e.Altitude)...), "), so the morning and evening spans meet"...)
+		b = append(append(append(b, " (at most "...), alt...), "), so the morning and evening spans meet"...)
 	case e.Part == "night":
 		b = append(append(b, ": the Sun's centre stays above "...), signedDegrees(e.Low)...)
-		b = append(append(append(b, " (at least "...), degrees(e.Altitude)...), "), so the evening and morning spans meet"...)
+		b = append(append(append(b, " (at least "...), alt...), "), so the evening and morning spans meet"...)
 	}
 	return b
+}
+
+// degreesWithin is degrees for an altitude a that lies strictly between
+// the band's bounds lo and hi (the Sun's highest or lowest in one of its
+// spans): where rounding to a tenth would put it on a bound or past it
+// ("at least 6.0°" in a golden hour, which ends at +6°), it is cut to the
+// tenth inside the band instead (5.9°).
+func degreesWithin(a, lo, hi float64) string {
+	r := math.Round(a*10) / 10
+	switch {
+	case r >= hi && a < hi:
+		return degrees(math.Floor(a*10) / 10)
+	case r <= lo && a > lo:
+		return degrees(math.Ceil(a*10) / 10)
+	}
+	return degrees(a)
 }
 
 // bandText is the text of a band kind's spans (golden hour, blue hour, a

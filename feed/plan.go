@@ -396,11 +396,18 @@ func (kt *kindTimes) note(d time.Time) (Note, bool) {
 	if err != nil || len(dc.xs) > 0 {
 		return Note{}, false // the Sun crosses the altitude, the other way
 	}
-	state := astro.AlwaysBelow
+	n := Note{Kind: kt.kind, Date: d, State: astro.AlwaysBelow, Family: kt.family}
 	if dc.up {
-		state = astro.AlwaysAbove
+		n.State = astro.AlwaysAbove
+		if twilight(kt.family) { // white night or midnight sun
+			start, end := kt.c.bounds(d)
+			n.SunUp, err = kt.c.sunStaysUp(start, end)
+			if err != nil {
+				n.SunUp = false // the reason stays the twilight's
+			}
+		}
 	}
-	return Note{Kind: kt.kind, Date: d, State: state, Family: kt.family}, true
+	return n, true
 }
 
 // kindTimes adds the events and notes of kind k on the collector's dates

@@ -900,11 +900,18 @@ func twilight(family string) bool {
 // sunStaysUp reports whether the Sun stays above the horizon (the altitude
 // of sunrise and sunset) from start to end, with no sunset or sunrise
 // between: a date without dusk or dawn is then one of midnight sun. Asked
-// only for such dates, near the poles.
+// only for such dates, near the poles: from the crossings of sunrise and
+// sunset when the collector has them, else searched on that date alone.
 func (c *collector) sunStaysUp(start, end time.Time) (bool, error) {
-	th, err := c.threshold(c.p.Observer.RiseSetAltitude())
-	if err != nil {
-		return false, err
+	alt, o := c.p.Observer.RiseSetAltitude(), c.p.Observer
+	th, ok := c.thresholds[alt]
+	if !ok {
+		xs, err := c.sky.eph.SunCrossings(o, alt, start, end)
+		if err != nil || len(xs) > 0 {
+			return false, err
+		}
+		h, err := c.sky.eph.SunAltitude(o, start)
+		return h > alt, err
 	}
 	i, _ := slices.BinarySearchFunc(th.xs, start, func(x astro.Crossing, t time.Time) int { return x.Time.Compare(t) })
 	if i < len(th.xs) && th.xs[i].Time.Before(end) {

@@ -4,6 +4,7 @@ import (
 	"context"
 	"strings"
 	"testing"
+	"time"
 
 	"heliocal/config"
 )
@@ -50,5 +51,26 @@ func TestTwilightNoteUnderMidnightSun(t *testing.T) {
 				t.Errorf("summary of %s says %q:\n%s", tc.day, tc.not, d)
 			}
 		})
+	}
+}
+
+// A plan that starts at a dusk gives the same reason for a date without it:
+// at 80° N, 0° on 14 April 2015 (USNO marker ****, row sun-0169, source as
+// above) the Sun does not set, on 31 August 2015 it does (rows sun-0174,
+// sun-0175) and civil twilight fills the night.
+func TestPlanTwilightNoteUnderMidnightSun(t *testing.T) {
+	s := site(t, "usno-80n", 80, 0, "UTC")
+	for d, why := range map[string]string{
+		"2015-04-14": "(no civil dusk or dawn today: the Sun does not set).",
+		"2015-08-31": "(no civil dusk or dawn tonight: civil twilight lasts all night).",
+	} {
+		// one date of a fortnight (searched on that date alone) and every
+		// date of a one-day window (from the window's crossings)
+		for first, rule := range map[string]string{date(d).AddDate(0, 0, -13).Format(time.DateOnly): d, d: "every day"} {
+			es := planEntries(t, s, first, d, config.Plan{Title: "Lamp round", Date: rule, Start: "civil-dusk", For: config.Duration(time.Hour)})
+			if len(es) != 1 || !es[0].AllDay || !strings.HasSuffix(es[0].Description, why) {
+				t.Errorf("%s (%s from %s): %+v, want an all-day note ending %q", d, rule, first, es, why)
+			}
+		}
 	}
 }

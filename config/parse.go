@@ -136,6 +136,11 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		dc.WeaklyTypedInput = false
 	}); err != nil {
 		problems = decodeProblems(err)
+		for i := range problems {
+			if problems[i].Value == "" { // a mapping or a list given as one value: name it
+				problems[i].Value = rawAt(v.AllSettings(), problems[i].Path)
+			}
+		}
 	}
 
 	for i := range c.Sites {
@@ -594,6 +599,45 @@ func problemFor(path string, err error) []FieldError {
 		return out
 	}
 	return []FieldError{{Path: shown, Msg: oneLine(msg)}}
+}
+
+// rawAt returns, as text, the single value written at a decoder path such
+// as "sites[1]" or "feeds[0].kinds" in the settings read (keys in any
+// case); "" when there is none there or it is a mapping or a list.
+func rawAt(v any, path string) string {
+	for _, seg := range strings.Split(path, ".") {
+		name, idx, _ := strings.Cut(seg, "[")
+		if name != "" {
+			m, ok := v.(map[string]any)
+			if !ok {
+				return ""
+			}
+			found := false
+			for k, x := range m {
+				if strings.EqualFold(k, name) {
+					v, found = x, true
+					break
+				}
+			}
+			if !found {
+				return ""
+			}
+		}
+		for idx != "" {
+			n, rest, _ := strings.Cut(idx, "]")
+			i, err := strconv.Atoi(n)
+			list, ok := v.([]any)
+			if err != nil || !ok || i < 0 || i >= len(list) {
+				return ""
+			}
+			v, idx = list[i], strings.TrimPrefix(rest, "[")
+		}
+	}
+	switch v.(type) {
+	case map[string]any, []any, nil:
+		return ""
+	}
+	return fmt.Sprint(v)
 }
 
 // keysAt lists the keys allowed at a decoder path such as "feeds[2].kinds[0]".

@@ -3,6 +3,7 @@ package serve
 import (
 	"crypto/sha256"
 	"encoding/hex"
+	"errors"
 	"fmt"
 	"math"
 	"net/url"
@@ -271,7 +272,13 @@ func (q *AdhocQuery) parseZone(get getter, lim *adhocLimits) error {
 	}
 	var err error
 	if q.Location, err = lim.zones.load(tz); err != nil {
-		return &QueryError{Param: ParamZone, Value: tz, Msg: "unknown time zone (use an IANA name such as Europe/Vienna)"}
+		// the configuration's suggestion: the nearest known name
+		hint := "use an IANA name such as Europe/Vienna"
+		var ze *config.ZoneError
+		if errors.As(new(config.Zone).UnmarshalText([]byte(tz)), &ze) && ze.Hint != "" {
+			hint = ze.Hint
+		}
+		return &QueryError{Param: ParamZone, Value: tz, Msg: "unknown time zone (" + hint + ")"}
 	}
 	return nil
 }

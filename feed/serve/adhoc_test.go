@@ -85,6 +85,9 @@ func TestAdhocBadParameters(t *testing.T) {
 		{"lat=47&lon=13&tz=../../etc/passwd&kinds=sunrise", "tz", `"../../etc/passwd"`},
 		{"lat=47&lon=13&tz=/etc/localtime&kinds=sunrise", "tz", `"/etc/localtime"`},
 		{"lat=47&lon=13&tz=europe/vienna&kinds=sunrise", "tz", `"europe/vienna"`},
+		// the nearest zone of the tz database is suggested, as for --tz
+		{"lat=47&lon=13&tz=europe/vienna&kinds=sunrise", "tz", `did you mean "Europe/Vienna"?`},
+		{"lat=-33.45&lon=-70.66&tz=America/Santiag&kinds=sunrise", "tz", `did you mean "America/Santiago"?`},
 		{"lat=47&lon=13&tz=", "tz", `""`},
 		{"lat=47&lon=13&tz=UTC", "kinds", ""},
 		{"lat=47&lon=13&tz=UTC&kinds=", "kinds", `""`},

@@ -242,7 +242,7 @@ func NewEphemeris(from, to time.Time) (*Ephemeris, error) {
 	end := start + float64(n-1)*secondsPerDay
 	series := newEarthSeries(epochOf(start).JDE-0.5, epochOf(end).JDE+0.5)
 	tr := allocTrack(start, secondsPerDay, n)
-	tr.sd, tr.cd = make([]float64, n), make([]float64, n) // filled run by run (trigRange)
+	tr.sd, tr.cd = make([]float64, n), make([]float64, n) // filled block by block (trigRange)
 	// The samples are taken block by block (daily starts its rotations
 	// afresh at each block, whichever goroutine takes it), each core taking
 	// the next block not yet taken until none is left, so that the cores

@@ -143,7 +143,7 @@ func (tr *track) finish() {
 }
 
 // trigRange tabulates the sine and cosine of the declination at the
-// samples k0..k1−1 (into tr.sd and tr.cd, allocated already: the runs of
+// samples k0..k1−1 (into tr.sd and tr.cd, allocated already: the blocks of
 // samples filled on several goroutines each tabulate their own),
 // so that sinAltitude interpolates them rather than computing them from the
 // interpolated declination: a third of its cost. Interpolated, sin δ and

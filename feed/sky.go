@@ -852,7 +852,12 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 			if dir != 0 && x.Direction != dir || keep >= 0 && j != keep {
 				continue
 			}
-			e := Event{Kind: k, Start: x.Time, Direction: x.Direction, Date: d}
+			// the event is written in its place in the slice (grown above),
+			// field by field: a literal would be built aside and copied
+			c.events = c.events[:len(c.events)+1]
+			e := &c.events[len(c.events)-1]
+			*e = Event{}
+			e.Kind, e.Start, e.Direction, e.Date = k, x.Time, x.Direction, d
 			if horizon {
 				e.DayLength, e.DayChange = c.lengths[i+1], c.lengths[i+1]-c.lengths[i]
 				if late != nil && !up && x.Time.Equal(late[i+1]) {
@@ -868,7 +873,6 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 					return err
 				}
 			}
-			c.events = append(c.events, e)
 		}
 		if !crossed {
 			n := Note{Kind: k, Date: d, State: astro.AlwaysBelow, Family: family}

@@ -418,3 +418,53 @@ func TestMoonMeaningsAndNotesOncePerCalendar(t *testing.T) {
 		}
 	}
 }
+
+// Day-length thresholds and cross-quarter days follow the same rule: what
+// they mean is written once in the calendar's description (all of a
+// feed's thresholds in one line), and each entry keeps its own numbers.
+// At 48.2° N, 16.4° E (Europe/Vienna) day length first reaches 12 h on
+// 18 March 2027 (12 h 01 min; 11 h 58 min on the 17th) and the Sun reaches
+// ecliptic longitude 315° on 4 February 2027. Sources: PyEphem 4.1 sunrise
+// and sunset (pressure 0, horizon −34′, upper limb) for the day lengths;
+// PyEphem's solar longitude for the cross-quarter date (01:43 UT; the
+// date is what is checked here).
+func TestThresholdsAndCrossQuarterMeanOnce(t *testing.T) {
+	s := site(t, "vienna", 48.2, 16.4, "Europe/Vienna")
+	sk := sky(t, "2027-01-01", "2027-03-31")
+	var specs []config.KindSpec
+	for _, k := range mustKinds(t, "photoperiod:12h", "photoperiod:10h30m", "cross-quarter") {
+		specs = append(specs, config.KindSpec{Kind: k})
+	}
+	cal, err := sk.Calendar(context.Background(), s, &config.Feed{ID: "f", Kinds: specs}, date("2027-01-01"), date("2027-03-31"), Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, m := range []string{
+		"Day length 12 h, 10 h 30 min: the dates on which day length (sunrise to sunset) rises past or falls below the threshold; " +
+			"lighting programmes for greenhouses and livestock are set by such thresholds.",
+		"Cross-quarter day: the Sun is midway in ecliptic longitude between an equinox and a solstice",
+	} {
+		if n := strings.Count(cal.Description, m); n != 1 {
+			t.Errorf("%q %d times in the calendar's description:\n%s", m, n, cal.Description)
+		}
+	}
+	seen := map[string]string{}
+	for _, e := range cal.Entries {
+		for _, w := range []string{"lighting programmes", "Lighting programs", "farm calendars"} {
+			if strings.Contains(e.Description, w) {
+				t.Errorf("%s entry repeats %q:\n%s", e.Kind, w, e.Description)
+			}
+		}
+		day := e.Start.Format(time.DateOnly) // an all-day entry's date
+		if !e.AllDay {
+			day = e.Start.In(s.TimeZone.Location).Format(time.DateOnly)
+		}
+		seen[e.Kind+" "+day] = e.Description
+	}
+	if d := seen["photoperiod:12h 2027-03-18"]; !strings.HasPrefix(d, "Day length rising past 12 h today: the Sun is up for 12 h 01 min") {
+		t.Errorf("18 March: %q, want day length rising past 12 h (12 h 01 min)", d)
+	}
+	if d := seen["cross-quarter 2027-02-04"]; !strings.Contains(d, "ecliptic longitude 315°") {
+		t.Errorf("4 February: %q, want the cross-quarter day at 315°", d)
+	}
+}

@@ -416,7 +416,7 @@ func hasKind(specs []config.KindSpec, name string) bool {
 // and numbers ("Civil dawn at 06:14:47 CET."); the meaning is the same on
 // every date.
 func kindMeanings(s *config.Site, specs []config.KindSpec) []string {
-	var out []string
+	var out, thresholds []string
 	azimuth, lighting, civilLight := false, false, false
 	add := func(m string) {
 		if m != "" && !slices.Contains(out, m) {
@@ -444,10 +444,17 @@ func kindMeanings(s *config.Site, specs []config.KindSpec) []string {
 				azimuth = true
 			case "dark-window", "new-moon", "first-quarter", "full-moon", "last-quarter", "moon-transit":
 				add(moonMeaning(s, k.Name, spec.MaxIllumination))
+			case "photoperiod":
+				if t := amount(k.DayLength); !slices.Contains(thresholds, t) {
+					thresholds = append(thresholds, t)
+				}
 			default:
 				add(kindMeaning(s, k.Name))
 			}
 		}
+	}
+	if len(thresholds) > 0 {
+		out = append(out, photoperiodMeaning(s, thresholds))
 	}
 	if azimuth {
 		out = append(out, azimuthMeaning)
@@ -465,13 +472,28 @@ func kindMeanings(s *config.Site, specs []config.KindSpec) []string {
 // give their direction.
 const azimuthMeaning = "Azimuths are in degrees from the north through the east (90° east, 180° south)."
 
+// photoperiodMeaning is the meaning of the photoperiod kinds of a feed at
+// site s, with their thresholds ("12 h", "14 h 30 min"): one line for all.
+func photoperiodMeaning(s *config.Site, thresholds []string) string {
+	what, of := "Day length", "day length (sunrise to sunset)"
+	if len(s.Skyline) > 0 {
+		what, of = "Direct Sun", "the hours of direct Sun over the site's skyline"
+	}
+	return what + " " + strings.Join(thresholds, ", ") + ": the dates on which " + of +
+		" rises past or falls below the threshold; lighting programmes for greenhouses and livestock are set by such thresholds."
+}
+
 // kindMeaning is the meaning of a sunrise, a sunset, a twilight's dawn or
-// dusk, a solar noon or a daily summary at site s, "" for other kinds.
+// dusk, a solar noon, a daily summary or a cross-quarter day at site s, ""
+// for other kinds.
 func kindMeaning(s *config.Site, kind string) string {
 	if m, ok := twilightMeaning[kind]; ok {
 		return m
 	}
 	switch kind {
+	case "cross-quarter":
+		return "Cross-quarter day: the Sun is midway in ecliptic longitude between an equinox and a solstice (315°, 45°, 135°, 225°); " +
+			"many farm calendars mark these midpoints of the seasons."
 	case "solar-noon":
 		return "Solar noon: the Sun crosses the meridian, its highest of the day."
 	case "daily-summary":
@@ -606,8 +628,7 @@ func describe(s *siteInfo, e Event) (string, string) {
 		b.WriteString(FutureNote(e.Start))
 		title = fmt.Sprintf("%s: %s begins", title, capital(season))
 	case "cross-quarter":
-		fmt.Fprintf(&b, "Cross-quarter day at %s (%s UTC): the Sun reaches ecliptic longitude %s°, midway between %s.\n"+
-			"Many farm calendars mark these midpoints of the seasons.", at, ToSecond(e.Start).UTC().Format("2006-01-02 15:04:05"), e.Part, crossQuarterBetween[e.Part])
+		fmt.Fprintf(&b, "Cross-quarter day at %s (%s UTC): the Sun reaches ecliptic longitude %s°, midway between %s.", at, ToSecond(e.Start).UTC().Format("2006-01-02 15:04:05"), e.Part, crossQuarterBetween[e.Part])
 		b.WriteString(FutureNote(e.Start))
 	case "perihelion", "aphelion":
 		near := "closest to"
@@ -628,9 +649,7 @@ func describe(s *siteInfo, e Event) (string, string) {
 		} else {
 			title = fmt.Sprintf("%s falling below %s", what, amount(e.Kind.DayLength))
 		}
-		fmt.Fprintf(&b, "%s today: "+how+".\n"+
-			"Lighting programs for greenhouses and livestock are set by this threshold.",
-			title, hm(e.DayLength), Change(e.DayChange))
+		fmt.Fprintf(&b, "%s today: "+how+".", title, hm(e.DayLength), Change(e.DayChange))
 	case "solar-eclipse", "lunar-eclipse":
 		return describeEclipse(s, e)
 	default:

@@ -468,3 +468,38 @@ func TestThresholdsAndCrossQuarterMeanOnce(t *testing.T) {
 		t.Errorf("4 February: %q, want the cross-quarter day at 315°", d)
 	}
 }
+
+// A solar noon between the date's sunrise and sunset finds the Sun up, even
+// when its centre is geometrically below the horizon (refraction lifts its
+// upper limb into view): the entry says so and carries the caution for the
+// eyes; in polar night it carries none. At 80° N, 0° the Sun rises at 11:21
+// and sets at 13:09 UT on 21 February 2015 (rows sun-0159, sun-0160) and
+// stays down on 21 December 2015 (marker ----, row sun-0182). Source: USNO
+// one-year table 'Rise and Set for the Sun', N80 00 / 000 00, 2015. Its
+// centre culminates about 0.6° below the horizon on 21 February and 13.4°
+// below it on 21 December (90° − 80° less the declination, −10.57° and
+// −23.43° by PyEphem 4.1).
+func TestSolarNoonOnTheHorizon(t *testing.T) {
+	s := site(t, "usno-80n", 80, 0, "UTC")
+	for _, tc := range []struct {
+		day, title string
+		eyes       bool
+	}{
+		{"2015-02-21", "Solar noon, Sun on the horizon", true},
+		{"2015-12-21", "Solar noon, Sun 13.4° below the horizon", false},
+	} {
+		sk := sky(t, tc.day, tc.day)
+		specs := []config.KindSpec{{Kind: mustKinds(t, "solar-noon")[0]}}
+		entries, err := sk.Entries(context.Background(), s, "noon", specs, date(tc.day), date(tc.day))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(entries) != 1 {
+			t.Fatalf("%s: %d entries, want one solar noon", tc.day, len(entries))
+		}
+		e := entries[0]
+		if e.Title != tc.title || strings.Contains(e.Description, cautionEyes) != tc.eyes {
+			t.Errorf("%s: %q\n%s\nwant the title %q, the eye caution %v", tc.day, e.Title, e.Description, tc.title, tc.eyes)
+		}
+	}
+}

@@ -609,9 +609,15 @@ func describe(s *siteInfo, e Event) (string, string) {
 		title = "Solar noon, Sun " + height(e.Altitude, "high")
 		// what solar noon is, in the calendar's description (kindMeaning)
 		fmt.Fprintf(&b, "Solar noon at %s, the Sun at %s altitude", at, degrees(e.Altitude))
-		if e.Altitude < 0 {
+		switch {
+		case e.Altitude > s.flatRise && e.Altitude < 0:
+			// the date's sunrise and sunset come before and after: the
+			// refraction (and the dip) keep its upper limb in view
+			title = "Solar noon, Sun on the horizon"
+			b.WriteString(", its centre below the horizon, its upper limb in view over a flat horizon.\n" + cautionEyes)
+		case e.Altitude < 0:
 			b.WriteString(", its centre below the horizon.")
-		} else {
+		default:
 			b.WriteString(".\n" + cautionEyes)
 		}
 	case "sun-altitude":

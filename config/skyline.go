@@ -200,11 +200,17 @@ func (s *Site) HorizonFromText(flag, v string) error {
 	}
 	s.HorizonValue = t
 	if strings.Contains(t, ":") {
-		pts, err := skylineItems(flag, t)
+		// the points' problems as an ad-hoc feed's skyline words them:
+		// by their place in the list as written, "point 2 (90:60)"
+		pts, err := SkylineFromText(flag, t, nil)
 		if err != nil {
 			return err
 		}
-		s.HorizonValue = pts
+		items := make([]any, len(pts))
+		for i, p := range pts {
+			items[i] = []any{p[0], p[1]}
+		}
+		s.HorizonValue = items
 	}
 	if ps := s.resolveHorizon(flag, ""); len(ps) > 0 {
 		return ps[0]
@@ -230,7 +236,7 @@ func SkylineFromText(flag, v string, round func(float64) float64) ([][2]float64,
 		p, ok := parsePoint(item)
 		if !ok {
 			return nil, FieldError{Path: flag, Value: v, Msg: point(j) + " (" + written(j) + "): must be azimuth:altitude, two numbers",
-				Hint: "e.g. " + flag + " 0:2,90:8,180:1,270:4 (degrees; azimuth from the north through the east)"}
+				Hint: "e.g. " + flag + " 0:2,90:8,180:1,270:4, in degrees, the azimuth from the north through the east"}
 		}
 		if round != nil {
 			p = [2]float64{round(p[0]), round(p[1])}
@@ -247,21 +253,6 @@ func SkylineFromText(flag, v string, round func(float64) float64) ([][2]float64,
 		return nil, p
 	}
 	return s.Skyline, nil
-}
-
-// skylineItems splits "azimuth:altitude" points into the form of a
-// configuration's horizon list.
-func skylineItems(flag, t string) ([]any, error) {
-	var pts []any
-	for j, item := range strings.Split(t, ",") {
-		p, ok := parsePoint(item)
-		if !ok {
-			return nil, FieldError{Path: fmt.Sprintf("%s[%d]", flag, j), Value: item, Msg: "must be azimuth:altitude, two numbers",
-				Hint: "e.g. " + flag + " 0:2,90:8,180:1,270:4 (degrees; azimuth from the north through the east)"}
-		}
-		pts = append(pts, []any{p[0], p[1]})
-	}
-	return pts, nil
 }
 
 // parsePoint reads one skyline point written "azimuth:altitude".

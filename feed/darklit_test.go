@@ -6,6 +6,7 @@ import (
 	"testing"
 	"time"
 
+	"heliocal/astro"
 	"heliocal/config"
 )
 
@@ -39,5 +40,28 @@ func TestDarkWindowCarriesNoLimitAsLight(t *testing.T) {
 	}
 	if e.Illuminated != 0 && math.Abs(e.Illuminated-0.3277) > 0.01 {
 		t.Errorf("illuminated = %.4f: neither absent nor the Moon's 0.3277 at moonrise (PyEphem)", e.Illuminated)
+	}
+}
+
+// A night without a dark window has a note whose state says why, as the
+// README's notes list it: AlwaysBelow when the Moon is up and bright all
+// through the astronomical night. At 45° S, 170.5° E (sea level) on the
+// night of 21–22 January 2027 astronomical dusk falls at 10:32:16 UT and
+// dawn at 15:06:35 UT, between moonrise at 07:35:38 and moonset at
+// 16:09:59 UT, the Moon 98 % lit. Source: PyEphem 4.1 (pressure 0,
+// horizon −18° for the Sun's centre, −34′ for the Moon's upper limb).
+func TestDarkWindowMoonlitNote(t *testing.T) {
+	s := site(t, "south-45", -45, 170.5, "Pacific/Auckland")
+	sk := sky(t, "2027-01-20", "2027-01-23")
+	spec := config.KindSpec{Kind: mustKinds(t, "dark-window")[0], MaxIllumination: 0.2}
+	events, notes, err := sk.EventsFor(context.Background(), PlaceOf(s), []config.KindSpec{spec}, date("2027-01-21"), date("2027-01-21"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(events) != 0 || len(notes) != 1 || notes[0].State != astro.AlwaysBelow {
+		t.Fatalf("events %v, notes %+v: want one note, always-below (the Moon up and bright)", events, notes)
+	}
+	if title, _ := describeNote(newSiteInfo(s), notes[0]); title != "No dark sky on the night of 21–22 January 2027: the Moon is up and bright all through the astronomical night" {
+		t.Errorf("note %q", title)
 	}
 }

@@ -560,3 +560,22 @@ func TestRefreshSchedulesAccepted(t *testing.T) {
 		}
 	}
 }
+
+// "Write the number without quotes" is said only of text that is a number
+// in quotes ("95"), not of words where a number belongs (days_ahead: lots,
+// written without quotes).
+func TestQuotesHintOnlyForQuotedNumbers(t *testing.T) {
+	for file, want := range map[string]bool{"bad-latitude-quoted.yaml": true, "bad-days-words.yaml": false} {
+		_, err := loadTestdata(t, file)
+		if err == nil {
+			t.Fatalf("%s: no error", file)
+		}
+		ps := problemsOf(t, err)
+		if len(ps) != 1 {
+			t.Fatalf("%s: %d problems, want 1: %v", file, len(ps), err)
+		}
+		if got := strings.Contains(ps[0].Hint, "without quotes"); got != want {
+			t.Errorf("%s: %s: hint %q, want the quotes hint: %v", file, ps[0].Path, ps[0].Hint, want)
+		}
+	}
+}

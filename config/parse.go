@@ -726,8 +726,11 @@ func describeValue(v any) string {
 }
 
 func typeHint(t reflect.Type, v any) string {
-	if _, ok := v.(string); ok && (t.Kind() == reflect.Float64 || t.Kind() == reflect.Int) {
-		return "write the number without quotes"
+	if x, ok := v.(string); ok && (t.Kind() == reflect.Float64 || t.Kind() == reflect.Int) {
+		if _, err := strconv.ParseFloat(strings.TrimSpace(x), 64); err == nil {
+			return "write the number without quotes" // "47.5" where 47.5 belongs
+		}
+		return "" // words ("lots") where a number belongs: no quotes to take away
 	}
 	if t.Kind() == reflect.String {
 		if _, ok := v.(string); !ok {

@@ -177,6 +177,7 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-month.yaml", "feeds[0].kinds[0].months[1]", "fbr", "not a month", "feb", 0},
 		{"bad-kind-alarm.yaml", "feeds[0].kinds[0].alarm", "-10m", "must not be negative", "", 0},
 		{"bad-plan-date.yaml", "feeds[0].plans[0].date", "every fortnight", "is not a weekday", "every friday", 0},
+		{"bad-plan-date-day.yaml", "feeds[0].plans[0].date", "every 02-30", `"02-30" is not a date of the year`, "every 02-29", 0},
 		{"plan-date-daily-kind.yaml", "feeds[0].plans[0].date", "saturday nearest sunset", "happens every day", "full-moon", 0},
 		{"bad-plan-start.yaml", "feeds[0].plans[0].start", "sunsett+30m", `unknown kind "sunsett"`, `did you mean "sunset"?`, 0},
 		{"bad-plan-end.yaml", "feeds[0].plans[0].end", "24:30", "not a clock time", "HH:MM", 0},

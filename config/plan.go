@@ -163,6 +163,11 @@ func ParseDateRule(s string) (DateRule, error) {
 			}
 			return DateRule{Type: RuleYearly, Month: t.Month(), Day: t.Day()}, nil
 		}
+		if len(f[1]) == 5 && f[1][2] == '-' && strings.Trim(f[1][:2]+f[1][3:], "0123456789") == "" {
+			// written as a date, but no date of the year ("02-30", "13-01")
+			return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is not a date of the year (MM-DD: a month 01..12, then a day that month has)", f[1]),
+				Hint: `e.g. "every 04-25"; "every 02-29" is in leap years only`}
+		}
 		return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is not a weekday, \"day\" or a date MM-DD", f[1]), Hint: `e.g. "every friday" or "every 04-25"`}
 	case len(f) == 1 && len(f[0]) == 10 && f[0][4] == '-':
 		d, err := time.Parse(time.DateOnly, f[0])

@@ -283,11 +283,10 @@ func height(alt float64, above string) string {
 // siteInfo is a site with its description, formatted once per feed.
 type siteInfo struct {
 	*config.Site
-	where      string // "Name (48.200° N, 16.400° E)"
-	refraction string // "standard refraction" or "refraction for 1030 hPa and −20 °C"
-	zone       *zoneCache
-	band       *bandText // the band kind last written
-	flatRise   float64   // the Sun's centre rises over a flat horizon through this geometric altitude
+	where    string // "Name (48.200° N, 16.400° E)"
+	zone     *zoneCache
+	band     *bandText // the band kind last written
+	flatRise float64   // the Sun's centre rises over a flat horizon through this geometric altitude
 }
 
 // newSiteInfo returns the siteInfo of s, for one goroutine (its zone cache).
@@ -295,7 +294,7 @@ func newSiteInfo(s *config.Site) *siteInfo {
 	o := PlaceOf(s).Observer
 	flat := o
 	flat.Horizon = 0 // as for polar night (collector.upAtNoon): a skyline hides the Sun, it does not set it
-	return &siteInfo{Site: s, where: where(s), refraction: refractionText(o), zone: newZoneCache(s.TimeZone.Location), flatRise: flat.RiseSetAltitude()}
+	return &siteInfo{Site: s, where: where(s), zone: newZoneCache(s.TimeZone.Location), flatRise: flat.RiseSetAltitude()}
 }
 
 // refractionText names the refraction rise and set are computed with.

@@ -1029,9 +1029,16 @@ func (c *collector) sunTransits() ([]astro.Transit, error) {
 // without sunrise at a site with a skyline or a horizon altitude above 0,
 // the Sun is then behind the skyline, not in polar night.
 func (c *collector) upAtNoon(tr astro.Transit) bool {
-	flat := c.p.Observer
-	flat.Horizon = 0
-	return tr.Altitude > flat.RiseSetAltitude()
+	return tr.Altitude > flatRiseAltitude(c.p.Observer)
+}
+
+// flatRiseAltitude is the geometric altitude of the Sun's centre at which
+// it rises and sets for o over a flat horizon (o's elevation and air,
+// horizon altitude 0): a skyline or a raised horizon hides the Sun, it does
+// not set it.
+func flatRiseAltitude(o astro.Observer) float64 {
+	o.Horizon = 0
+	return o.RiseSetAltitude()
 }
 
 // noonClear adds, for a site with a skyline, the dates whose solar noon

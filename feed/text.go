@@ -286,15 +286,12 @@ type siteInfo struct {
 	where    string // "Name (48.200° N, 16.400° E)"
 	zone     *zoneCache
 	band     *bandText // the band kind last written
-	flatRise float64   // the Sun's centre rises over a flat horizon through this geometric altitude
+	flatRise float64   // flatRiseAltitude: the Sun's centre rises over a flat horizon through it
 }
 
 // newSiteInfo returns the siteInfo of s, for one goroutine (its zone cache).
 func newSiteInfo(s *config.Site) *siteInfo {
-	o := PlaceOf(s).Observer
-	flat := o
-	flat.Horizon = 0 // as for polar night (collector.upAtNoon): a skyline hides the Sun, it does not set it
-	return &siteInfo{Site: s, where: where(s), zone: newZoneCache(s.TimeZone.Location), flatRise: flat.RiseSetAltitude()}
+	return &siteInfo{Site: s, where: where(s), zone: newZoneCache(s.TimeZone.Location), flatRise: flatRiseAltitude(PlaceOf(s).Observer)}
 }
 
 // refractionText names the refraction rise and set are computed with.

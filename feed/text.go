@@ -752,7 +752,7 @@ const (
 // Sun stays under the band's upper bound all day (over its lower bound all
 // night); glow says that the Sun does not rise in the span.
 func appendMerged(b []byte, e Event, glow bool) []byte {
-	if !glow && e.Part != "all-day" && e.Part != "night" {
+	if !glow && !MergedSpan(e) {
 		return b // a morning or an evening: nothing to add (and no altitude to write)
 	}
 	alt := degreesWithin(e.Altitude, e.Low, e.High)

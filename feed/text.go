@@ -819,13 +819,8 @@ func (bt *bandText) title(p string) string {
 		}
 	}
 	part := partName(p)
-	switch {
-	case bt.name == config.KindSunBand && (p == "all-day" || p == partGlow): // one span through noon: a high band's usual day, not a low Sun
+	if bt.name == config.KindSunBand && (p == "all-day" || p == partGlow) { // one span through noon: a high band's usual day, not a low Sun
 		part = "through midday"
-	case p == partGlow:
-		part = "twilight glow, Sun below the horizon"
-	case p == partDays:
-		part = "around the clock"
 	}
 	t := bt.base + " (" + part + ")"
 	bt.parts, bt.titles = append(bt.parts, p), append(bt.titles, t)
@@ -915,12 +910,18 @@ var crossQuarterBetween = map[string]string{
 	"315": "the December solstice and the March equinox",
 }
 
+// partName is the words for the part p of a band's span in its title
+// (an Event's Part, partGlow or partDays).
 func partName(p string) string {
 	switch p {
 	case "all-day":
 		return "morning and evening in one"
 	case "night":
 		return "around midnight"
+	case partGlow:
+		return "twilight glow, Sun below the horizon"
+	case partDays:
+		return "around the clock"
 	}
 	return p
 }

@@ -297,9 +297,11 @@ var (
 	scratchEvents slicePool[Event]
 )
 
-// Release tells that c and its entries are no longer used: their memory
-// serves a calendar built after. Neither c nor its entries may be used
-// after the call.
+// Release tells that c's entries are no longer used: their memory, and
+// that of their descriptions, titles and UIDs (substrings of c.text),
+// serves a calendar built after. Neither the entries nor any string taken
+// from them may be used after the call; c's other fields (ID, Title,
+// Site, URL, Stamp, TrimmedTo) are not pooled and stay as they are.
 func (c *Calendar) Release() {
 	releasedEntries.put(c.Entries)
 	c.Entries = nil

@@ -60,20 +60,22 @@ type Event struct {
 // stays under the band's upper bound) or "night" (over its lower bound):
 // its Altitude is then the Sun's highest or lowest in it.
 func MergedSpan(e Event) bool {
-	switch e.Kind.Name {
-	case "golden-hour", "blue-hour", config.KindSunBand:
-		return e.Part == "all-day" || e.Part == "night"
-	}
-	return false
+	return isBand(e.Kind) && (e.Part == "all-day" || e.Part == "night")
 }
 
 // AroundTheClock reports whether e is a band's span in which the Sun stays
 // for more than a day (near a pole), or one not left before the window
 // ends (Open).
 func AroundTheClock(e Event) bool {
-	switch e.Kind.Name {
+	return isBand(e.Kind) && (e.Open || span(e.Start, e.End) > 24*time.Hour)
+}
+
+// isBand reports whether k's events are the spans the Sun spends between
+// two altitudes (collector.band): golden hour, blue hour, a sun band.
+func isBand(k config.Kind) bool {
+	switch k.Name {
 	case "golden-hour", "blue-hour", config.KindSunBand:
-		return e.Open || span(e.Start, e.End) > 24*time.Hour
+		return true
 	}
 	return false
 }

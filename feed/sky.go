@@ -899,6 +899,8 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 	return nil
 }
 
+// twilight reports whether family is a twilight's (civil, nautical,
+// astronomical): its notes may be of a white night or of midnight sun.
 func twilight(family string) bool {
 	return family == "civil" || family == "nautical" || family == "astronomical"
 }

@@ -49,7 +49,7 @@ func writeDirect(f *os.File, data []byte) (bool, error) {
 	}); err != nil || !ok {
 		return false, nil
 	}
-	written, werr := writeHeld(rc, data[:n])
+	written, werr := writeHeld(rc, f.Name(), data[:n])
 	var cerr error
 	if err := rc.Control(func(fd uintptr) {
 		if _, _, e := syscall.Syscall(syscall.SYS_FCNTL, fd, syscall.F_SETFL, uintptr(flags)); e != 0 {
@@ -82,13 +82,13 @@ func writeDirect(f *os.File, data []byte) (bool, error) {
 // plus the hand-offs themselves. The processor held is one a worker would
 // leave idle anyway (there are as many workers as processors, and the
 // calendars wait in a bounded queue), and the other workers go on; what
-// waits is a stop-the-world of the garbage collector, for one disk write
-// at most. Only Publish's writer does this, in the publish command.
+// waits is a stop-the-world of the garbage collector, for one write or
+// fsync at most. Only Publish's writer does this, in the publish command.
 
-// writeHeld writes data at f's offset in as many write(2) calls as it
-// takes, holding the processor (see above); it returns how much was
-// written and the first error.
-func writeHeld(rc syscall.RawConn, data []byte) (int, error) {
+// writeHeld writes data at the offset of rc's file, name, in as many
+// write(2) calls as it takes, holding the processor (see above); it
+// returns how much was written and the first error.
+func writeHeld(rc syscall.RawConn, name string, data []byte) (int, error) {
 	written := 0
 	var werr error
 	if err := rc.Control(func(fd uintptr) {
@@ -98,7 +98,7 @@ func writeHeld(rc syscall.RawConn, data []byte) (int, error) {
 			case e == syscall.EINTR:
 				continue
 			case e != 0:
-				werr = &os.PathError{Op: "write", Err: e}
+				werr = &os.PathError{Op: "write", Path: name, Err: e}
 				return
 			case n == 0:
 				werr = io.ErrShortWrite

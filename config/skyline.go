@@ -202,15 +202,13 @@ func (s *Site) HorizonFromText(flag, v string) error {
 	if strings.Contains(t, ":") {
 		// the points' problems as an ad-hoc feed's skyline words them:
 		// by their place in the list as written, "point 2 (90:60)"
+		// (checked and sorted there, as resolveHorizon does a list)
 		pts, err := SkylineFromText(flag, t, nil)
 		if err != nil {
 			return err
 		}
-		items := make([]any, len(pts))
-		for i, p := range pts {
-			items[i] = []any{p[0], p[1]}
-		}
-		s.HorizonValue = items
+		s.Skyline = pts
+		return nil
 	}
 	if ps := s.resolveHorizon(flag, ""); len(ps) > 0 {
 		return ps[0]

@@ -282,8 +282,9 @@ func (w *Writer) writeTemp(name string, data []byte) (_ string, err error) {
 			os.Remove(tmp)
 		}
 	}()
+	osf, isFile := f.(*os.File) // not when a test injects failures
 	direct := false
-	if osf, ok := f.(*os.File); ok {
+	if isFile {
 		direct, err = writeDirect(osf, data)
 	}
 	if !direct {
@@ -301,7 +302,7 @@ func (w *Writer) writeTemp(name string, data []byte) (_ string, err error) {
 			return "", fmt.Errorf("publish: write %s: %w", name, err)
 		}
 	}
-	if osf, ok := f.(*os.File); ok {
+	if isFile {
 		err = syncHeld(osf)
 	} else {
 		err = f.Sync()

@@ -172,7 +172,6 @@ func (s *earthSeries) slowAt(jde float64) (L, B, R float64) {
 func (s *earthSeries) at(jde float64) (L, B, R float64) {
 	L, B, R = s.slowAt(jde)
 	tau := (jde - J2000) / julianMillennium
-	splitTerms()
 	L += evalVSOP(fastTerms[0], tau)
 	B += evalVSOP(fastTerms[1], tau)
 	R += evalVSOP(fastTerms[2], tau)
@@ -211,7 +210,6 @@ func (s *earthSeries) daily(jdes []float64, buf *sampleBuffers) (L, B, R []float
 	// and sine rotated together from sample to sample: the terms' rotations
 	// are independent of one another
 	tp := floats(&buf.tp, n) // τᵖ
-	splitTerms()
 	for v := range 3 {
 		for k := range n {
 			tp[k] = 1
@@ -271,9 +269,9 @@ func floats(b *[]float64, n int) []float64 {
 
 // slowTerms and fastTerms are the VSOP87D series of L, B and R split at
 // fastPeriod: the fast ones are the Moon's pull on the Earth and its
-// harmonics (about 150 of the 1,567 terms). They are split at first use
-// (splitTerms, called by each user: the Sun's ephemeris), not when the
-// program starts.
+// harmonics (about 150 of the 1,567 terms). They are split at first use,
+// not when the program starts: by slowNodes, which newEarthSeries calls
+// before any method of the series it makes can use them.
 var slowTerms, fastTerms [3][][]vsopTerm
 
 var splitTerms = sync.OnceFunc(func() { slowTerms, fastTerms = splitVSOP() })

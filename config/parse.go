@@ -136,9 +136,10 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		dc.WeaklyTypedInput = false
 	}); err != nil {
 		problems = decodeProblems(err)
+		settings := v.AllSettings() // built afresh by each call: once for all problems
 		for i := range problems {
 			if problems[i].Value == "" { // a mapping or a list given as one value: name it
-				problems[i].Value = rawAt(v.AllSettings(), problems[i].Path)
+				problems[i].Value = rawAt(settings, problems[i].Path)
 			}
 		}
 	}

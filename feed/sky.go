@@ -1393,7 +1393,7 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 		c.events = append(c.events, Event{Kind: k, Start: start, End: end, Date: d, Part: part(entered), Low: low, High: high, Open: true})
 		seen[daysBetween(c.first, d)] = true
 	}
-	for i, d := 0, c.first; !d.After(c.last); i, d = i+1, d.Add(24*time.Hour) { // UTC dates: a day is 24 h
+	for i, d := range c.dayDates() {
 		if seen[i] {
 			continue
 		}
@@ -1611,7 +1611,7 @@ func (c *collector) summaryEvents(k config.Kind) error {
 	if err := c.dayLengths(); err != nil {
 		return err
 	}
-	for i, d := 0, c.first; !d.After(c.last); i, d = i+1, d.AddDate(0, 0, 1) {
+	for i, d := range c.dayDates() {
 		c.events = append(c.events, Event{Kind: k, Start: midnight(d, c.p.Location), Date: d,
 			DayLength: c.lengths[i+1], DayChange: c.lengths[i+1] - c.lengths[i], DirectSun: c.p.direct()})
 	}

@@ -200,7 +200,7 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 	if keepText {
 		// the text of every kind, one after the other, and of the plans
 		// (planEntries) after them
-		w.text = textBuffers.get((days*len(specs) + room) * textPerEntry)
+		w.text = calendarTexts.get((days*len(specs) + room) * textPerEntry)
 	} else {
 		w.text = textBuffers.get(days * textPerEntry)
 	}
@@ -280,12 +280,15 @@ var (
 	// releasedEntries holds the entries of released calendars
 	// (Calendar.Release): about 0.6 MB for an ad-hoc year feed.
 	releasedEntries slicePool[Entry]
-	// textBuffers holds the entry writers' text buffers (entryWriter.text):
-	// where flushText copies the text into the entries' strings the buffer
-	// is scratch once the entries are written (about 140 kB for a year of
-	// four kinds); a calendar's is its entries' text, given back by
-	// Release (about 0.6 MB for a year of five kinds).
+	// textBuffers holds the scratch text buffers of entry writers whose
+	// flushText copies the text into the entries' strings (about 140 kB
+	// for a year of four kinds).
 	textBuffers slicePool[byte]
+	// calendarTexts holds calendars' text buffers, their entries' text,
+	// given back by Release (about 0.6 MB for a year of five kinds): a pool
+	// of their own, so that a calendar is not handed a scratch buffer too
+	// small for it, to drop.
+	calendarTexts slicePool[byte]
 	// textSpans holds the entry writers' lists of where each entry's
 	// text is (entryWriter.spans), about 15 kB for a year.
 	textSpans slicePool[textSpan]
@@ -306,7 +309,7 @@ func (c *Calendar) Release() {
 	releasedEntries.put(c.Entries)
 	c.Entries = nil
 	if c.text != nil {
-		textBuffers.put(c.text)
+		calendarTexts.put(c.text)
 		c.text = nil
 	}
 }

@@ -4,7 +4,10 @@ import (
 	"cmp"
 	"context"
 	"crypto/sha256"
+	"encoding"
+	"encoding/binary"
 	"fmt"
+	"hash"
 	"slices"
 	"sort"
 	"strconv"
@@ -657,6 +660,9 @@ type entryWriter struct {
 	spans    []textSpan
 	keepText bool
 	flushed  int
+
+	// digest hashes the UIDs' keys (see appendHash).
+	digest *blockDigest
 }
 
 // kindName returns k.String(), written once per feed for the kinds with a
@@ -723,21 +729,82 @@ func (w *entryWriter) appendUID(dst, key []byte) []byte {
 	}
 	key = strconv.AppendInt(append(key, '|'), int64(n), 10)
 	w.buf = key
-	return appendHash(dst, key)
+	return w.appendHash(dst, key)
 }
 
 // appendHash appends the UID of a key with its count: the first 12 bytes
 // of its SHA-256 in hex, and "@heliocal".
-func appendHash(dst, key []byte) []byte {
-	sum := sha256.Sum256(key)
-	// hex.AppendEncode's digits, written into one array and appended once
+func (w *entryWriter) appendHash(dst, key []byte) []byte {
+	var sum [sha256.Size]byte
+	if w.digest == nil {
+		w.digest = newBlockDigest()
+	}
+	if !w.digest.sum(&sum, key) {
+		sum = sha256.Sum256(key)
+	}
+	// hex.AppendEncode's digits, written in place
 	const digits = "0123456789abcdef"
-	var uid [uidLen]byte
-	for i, b := range sum[:12] {
+	n := len(dst)
+	dst = slices.Grow(dst, uidLen)[:n+uidLen]
+	uid := (*[uidLen]byte)(dst[n:])
+	for i := range 12 {
+		b := sum[i]
 		uid[2*i], uid[2*i+1] = digits[b>>4], digits[b&15]
 	}
 	copy(uid[24:], "@heliocal")
-	return append(dst, uid[:]...)
+	return dst
+}
+
+// sum writes the SHA-256 of a key of up to two blocks (119 octets)
+// to sum and reports true, or reports false for a longer key. A UID's key
+// is short, and sha256.Sum256 spent more on its own bookkeeping (copying
+// the key into its block, padding it in a second Write, writing out the
+// sum) than on compressing the block: here the key is padded in place, as
+// FIPS 180-4 §5.1.1 pads it (0x80, zeros, the length in bits), the padded
+// blocks go to a reused digest in one Write, which compresses them straight
+// from the array, and the digest's state after them, which is the SHA-256
+// of the key, is read from its binary form (crypto/sha256: "sha\x03", then
+// the eight state words, big-endian). A test holds it to sha256.Sum256
+// for every length.
+func (d *blockDigest) sum(sum *[sha256.Size]byte, key []byte) bool {
+	const block = 64
+	n := len(key)
+	if n > 2*block-9 {
+		return false
+	}
+	size := block
+	if n > block-9 {
+		size = 2 * block
+	}
+	padded := d.padded[:size]
+	copy(padded, key)
+	padded[n] = 0x80
+	clear(padded[n+1 : size-8])
+	binary.BigEndian.PutUint64(padded[size-8:], uint64(n)*8)
+	d.h.Reset()
+	d.h.Write(padded)
+	state, err := d.state.AppendBinary(d.buf[:0])
+	if err != nil || len(state) < 4+sha256.Size || string(state[:4]) != "sha\x03" {
+		return false
+	}
+	copy(sum[:], state[4:])
+	return true
+}
+
+// blockDigest is a reused digest for sum and the buffer its state is
+// read into.
+type blockDigest struct {
+	h     hash.Hash
+	state encoding.BinaryAppender
+	// padded is the padded key; the digest's Write would move an array
+	// of the stack to the heap.
+	padded [128]byte
+	buf    [256]byte
+}
+
+func newBlockDigest() *blockDigest {
+	h := sha256.New()
+	return &blockDigest{h: h, state: h.(encoding.BinaryAppender)}
 }
 
 // keep returns key as a string over a copy of it in w.keys, instead of
@@ -951,7 +1018,7 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 		n := st.occurrence(e.Date.Unix()/secondsPerDay, e.Part, e.Direction)
 		key = strconv.AppendInt(append(key, '|'), int64(n), 10)
 		w.buf = key
-		w.text = appendHash(w.text, key)
+		w.text = w.appendHash(w.text, key)
 	} else {
 		w.text = w.appendUID(w.text, key)
 	}

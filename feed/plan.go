@@ -604,7 +604,7 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 		if pt.counted {
 			key = append(key, "|0"...)
 			w.buf = key
-			w.text = appendHash(b, key)
+			w.text = w.appendHash(b, key)
 		} else {
 			w.text = w.appendUID(b, key)
 		}

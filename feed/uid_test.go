@@ -90,3 +90,42 @@ func TestEventUIDs(t *testing.T) {
 		}
 	}
 }
+
+// TestBlockDigest: the UIDs' digest of a padded key is sha256.Sum256 of
+// the key (FIPS 180-4's SHA-256) for every key length, those of one block
+// and of two and the longer ones it hands back, one digest reused from
+// key to key; and with it a UID is the first 12 bytes of that in hex.
+func TestBlockDigest(t *testing.T) {
+	d := newBlockDigest()
+	var w entryWriter
+	for n := range 200 {
+		key := make([]byte, n)
+		for i := range key {
+			key[i] = byte('a' + (n*7+i)%26)
+		}
+		want := sha256.Sum256(key)
+		var got [sha256.Size]byte
+		if ok := d.sum(&got, key); ok != (n <= 119) || ok && got != want {
+			t.Fatalf("key of %d octets: sum %x (%v), want %x", n, got, ok, want)
+		}
+		if uid := string(w.appendHash(nil, key)); uid != hex.EncodeToString(want[:12])+"@heliocal" {
+			t.Fatalf("key of %d octets: UID %s, want the first 12 bytes of %x", n, uid, want)
+		}
+	}
+	// FIPS 180-4's example "abc" (NIST, SHA-256 example with intermediate
+	// values: ba7816bf…f20015ad)
+	var got [sha256.Size]byte
+	if !d.sum(&got, []byte("abc")) || hex.EncodeToString(got[:]) != "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad" {
+		t.Fatalf(`sum("abc") = %x`, got)
+	}
+}
+
+// BenchmarkUIDHash: a UID of a typical key of the fleet benchmark's feeds.
+func BenchmarkUIDHash(b *testing.B) {
+	var w entryWriter
+	key := []byte("site-0003-daily|golden-hour||2026-11-03|morning||0")
+	var dst []byte
+	for b.Loop() {
+		dst = w.appendHash(dst[:0], key)
+	}
+}

@@ -2,6 +2,7 @@ package feed
 
 import (
 	"fmt"
+	"math"
 	"strings"
 	"time"
 
@@ -38,8 +39,18 @@ type daylight struct {
 	touched          bool
 }
 
-// lightSpan is a period of light: from r to s.
-type lightSpan struct{ r, s time.Time }
+// lightSpan is a period of light: from r to s (Unix nanoseconds), the
+// crossings xs[ri] and xs[si] of the threshold's; ri < 0 when it began
+// before the crossings (r is then math.MinInt64), si < 0 when it does not
+// end within them (s is math.MaxInt64, and the end is never).
+type lightSpan struct {
+	r, s   int64
+	ri, si int32
+}
+
+// never is the end of a period of light that does not end within the
+// crossings: far away.
+var never = time.Unix(1<<40, 0).UTC()
 
 var (
 	// lightSpans and daylightBuffers hold the scratch slices of
@@ -50,77 +61,116 @@ var (
 
 // daylights returns, for each local date first..last, the light above alt;
 // the caller gives the slice back to daylightBuffers when done with it.
+// Instants are compared as Unix nanoseconds (which hold every instant
+// astro serves), and the daylight's are the crossings' and midnights'
+// own.
 func (c *collector) daylights(alt float64) ([]daylight, error) {
 	th, err := c.threshold(alt)
 	if err != nil {
 		return nil, err
 	}
-	// the periods above alt; an open end far away
-	never := time.Unix(1<<40, 0).UTC()
-	spans := lightSpans.get(len(th.xs)/2 + 2)
+	// the periods above alt, as indices of their crossings: before the
+	// span (r) or never (s) when the index is negative
+	xs := th.xs
+	spans := lightSpans.get(len(xs)/2 + 2)
 	defer func() { lightSpans.put(spans) }()
 	if th.upFirst {
-		spans = append(spans, lightSpan{s: never})
+		spans = append(spans, lightSpan{r: math.MinInt64, s: math.MaxInt64, ri: -1, si: -1})
 	}
-	for _, x := range th.xs {
+	for k := range xs {
+		x := &xs[k]
 		if x.Direction == astro.Rising {
-			spans = append(spans, lightSpan{r: x.Time, s: never})
-		} else if len(spans) > 0 && spans[len(spans)-1].s.Equal(never) {
-			spans[len(spans)-1].s = x.Time
+			spans = append(spans, lightSpan{r: x.Time.UnixNano(), s: math.MaxInt64, ri: int32(k), si: -1})
+		} else if n := len(spans); n > 0 && spans[n-1].si < 0 {
+			spans[n-1].s, spans[n-1].si = x.Time.UnixNano(), int32(k)
 		}
+	}
+	rise := func(sp *lightSpan) time.Time {
+		if sp.ri < 0 {
+			return time.Time{}
+		}
+		return xs[sp.ri].Time
+	}
+	set := func(sp *lightSpan) time.Time {
+		if sp.si < 0 {
+			return never
+		}
+		return xs[sp.si].Time
 	}
 	late, err := c.dayEnds(alt)
 	if err != nil {
 		return nil, err
 	}
+	unixNano := func(t time.Time) int64 { // zero: none
+		if t.IsZero() {
+			return math.MinInt64
+		}
+		return t.UnixNano()
+	}
 	starts := c.dayStarts()
-	out := daylightBuffers.get(len(starts) - 3)
+	out := daylightBuffers.get(len(starts) - 3)[:len(starts)-3]
 	j := 0
-	for i := 0; i+3 < len(starts); i++ {
-		start, end := starts[i+1], starts[i+2]
-		endsBefore, endsHere := late[i+1], late[i+2] // the days of the date before and of this one, past midnight
-		for j < len(spans) && spans[j].s.Before(start) {
+	startN, endN := starts[1].UnixNano(), int64(0)
+	endsHere := unixNano(late[1])
+	for i := range out {
+		dl := &out[i]
+		*dl = daylight{}
+		endN = starts[i+2].UnixNano()
+		// the days of the date before and of this one, past midnight
+		endsBefore := endsHere
+		endsHere = unixNano(late[i+2])
+		for j < len(spans) && spans[j].s < startN {
 			j++
 		}
-		var dl daylight
 		fi, li := -1, -1
-		for k := j; k < len(spans) && spans[k].r.Before(end); k++ {
-			sp := spans[k]
+		var firstN, lastN int64
+		for k := j; k < len(spans) && spans[k].r < endN; k++ {
+			sp := &spans[k]
 			a, b := sp.r, sp.s
-			if a.Before(start) {
-				if b.Equal(endsBefore) { // the date before's day
+			if a < startN {
+				if b == endsBefore { // the date before's day
 					dl.touched = true
 					continue
 				}
-				a = start
+				a = startN
 			}
-			if b.After(end) && !b.Equal(endsHere) {
-				b = end
+			if b > endN && b != endsHere {
+				b = endN
 			}
-			if !b.After(a) {
+			if b <= a {
 				continue
 			}
-			dl.length += b.Sub(a)
+			dl.length += time.Duration(b - a)
 			if fi < 0 {
-				fi, dl.first = k, a
+				fi, firstN = k, a
+				if a == sp.r {
+					dl.first = rise(sp)
+				} else {
+					dl.first = starts[i+1]
+				}
 			}
-			li, dl.last = k, b
+			li, lastN = k, b
+			if b == sp.s {
+				dl.last = set(sp)
+			} else {
+				dl.last = starts[i+2]
+			}
 		}
 		if fi >= 0 {
 			switch {
-			case dl.first.After(spans[fi].r):
+			case firstN > spans[fi].r:
 				dl.dawnFrom = dl.first // up since before the date
 			case fi > 0:
-				dl.dawnFrom = spans[fi-1].s
+				dl.dawnFrom = set(&spans[fi-1])
 			}
 			switch {
-			case dl.last.Before(spans[li].s):
+			case lastN < spans[li].s:
 				dl.duskTo = dl.last // up after the date
 			case li+1 < len(spans):
-				dl.duskTo = spans[li+1].r
+				dl.duskTo = rise(&spans[li+1])
 			}
 		}
-		out = append(out, dl)
+		startN = endN
 	}
 	return out, nil
 }

@@ -204,8 +204,9 @@ func (c *collector) lighting(k config.Kind) error {
 	if lamps == "" {
 		lamps = config.LampsEvening
 	}
-	for i, dl := range days {
-		d := c.first.Add(time.Duration(i) * 24 * time.Hour) // a civil date: UTC has no clock changes
+	dates := c.dayDates()
+	for i := range days {
+		dl, d := &days[i], dates[i]
 		if !needs[i] {
 			if i == 0 || needs[i-1] {
 				n := Note{Kind: k, Date: d, State: astro.AlwaysAbove, Family: k.String()}
@@ -579,10 +580,19 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	on, off := shownAt(e.Start, s.zone), shownAt(e.End, s.zone)
 	t := on.appendMinute(append(title, "Lamps on "...))
 	t = off.appendMinute(append(t, "–"...))
-	if s.zone.day(e.End.Add(-time.Nanosecond)) != e.Date.Unix()/secondsPerDay {
+	// the local date of the period's last instant, a nanosecond before
+	// its end
+	last := e.End.Unix()
+	if e.End.Nanosecond() == 0 {
+		last--
+	}
+	if s.zone.dayOf(last) != e.Date.Unix()/secondsPerDay {
 		t = append(t, " (+1 day)"...)
 	}
-	t = appendHM(append(t, " ("...), e.Lamp) // as the natural day below
+	t = append(t, " ("...)
+	lamp := len(t)
+	t = appendHM(t, e.Lamp) // as the natural day below
+	lampHM := t[lamp:]
 	if e.Short {
 		t = append(append(append(t, "; "...), lt.target...), " not reached)"...)
 	} else {
@@ -602,7 +612,7 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	}
 	b = on.appendSecond(b)
 	b = off.appendSecond(append(b, ", off at "...))
-	b = appendHM(append(b, " ("...), e.Lamp)
+	b = append(append(b, " ("...), lampHM...)
 	switch {
 	case whole && e.Clipped:
 		b = append(b, "), as near solar noon as the limits allow.\n"...)

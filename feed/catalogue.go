@@ -198,7 +198,7 @@ func (sky *Sky) Entries(ctx context.Context, s *config.Site, feedID string, spec
 func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []config.KindSpec, room int, keepText bool) (_ []Entry, text []byte, _ error) {
 	last := col.last
 	days := int(col.last.Sub(col.first).Hours()/24) + 1
-	w := entryWriter{feedID: feedID, site: newSiteInfo(s), noted: map[string]bool{}, last: civil(last), keepText: keepText}
+	w := entryWriter{feedID: feedID, site: col.siteInfo(s), noted: map[string]bool{}, last: civil(last), keepText: keepText}
 	w.out = releasedEntries.get(days*(len(specs)+1) + room)
 	if keepText {
 		// the text of every kind, one after the other, and of the plans
@@ -978,14 +978,17 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 		kind = w.kindName(e.Kind)
 	}
 	en := w.next()
-	en.Kind, en.Title, en.Start, en.Date, en.Alarm = kind, title, e.Start.Add(offset), e.Date, w.alarm
+	en.Kind, en.Title, en.Start, en.End, en.Date, en.Alarm = kind, title, e.Start, e.End, e.Date, w.alarm
+	if offset != 0 {
+		en.Start = e.Start.Add(offset)
+		if !e.End.IsZero() {
+			en.End = e.End.Add(offset)
+		}
+	}
 	if e.Kind.Name == spec.Kind.Name {
 		en.Categories = st.cats
 	} else {
 		en.Categories = w.categories(e.Kind)
-	}
-	if !e.End.IsZero() {
-		en.End = e.End.Add(offset)
 	}
 	// field by field into the zero entry: no Facts made and copied, and
 	// no copy of the event for EclipseFacts unless it is an eclipse

@@ -192,7 +192,7 @@ func (sky *Sky) allPlanDates(col *collector, parsed []*plan) (planDates, error) 
 func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parsed []*plan, kinds []config.KindSpec, pd planDates, out []Entry, text []byte) ([]Entry, []byte, error) {
 	last := col.last
 	col.spec, col.maxLit = config.KindSpec{}, 0
-	w := entryWriter{feedID: feedID, site: newSiteInfo(s), noted: map[string]bool{}, last: last, out: out}
+	w := entryWriter{feedID: feedID, site: col.siteInfo(s), noted: map[string]bool{}, last: last, out: out}
 	w.spans = textSpans.get(pd.total)
 	defer func() { textSpans.put(w.spans) }()
 	if text != nil && cap(text)-len(text) >= pd.total*textPerEntry {

@@ -531,6 +531,16 @@ type collector struct {
 	transits    []astro.Transit             // the Sun's transits over first-1..last, computed once (sunTransits)
 	noonsByDate map[time.Time]astro.Transit // the same by local date (noonOf)
 	zc          *zoneCache                  // see zone
+	si          *siteInfo                   // see siteInfo
+}
+
+// siteInfo returns the text of the collector's site s, made once for the
+// writers of a feed's kinds and plans.
+func (c *collector) siteInfo(s *config.Site) *siteInfo {
+	if c.si == nil || c.si.Site != s {
+		c.si = newSiteInfo(s)
+	}
+	return c.si
 }
 
 // times, durations and flags return n zero values, from the chunk's

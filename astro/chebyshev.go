@@ -217,6 +217,9 @@ func (s *earthSeries) daily(jdes []float64, buf *sampleBuffers) (L, B, R []float
 		for _, terms := range fastTerms[v] {
 			m := len(terms)
 			C, S, cr, sr := floats(&buf.c, m), floats(&buf.s, m), floats(&buf.cr, m), floats(&buf.sr, m)
+			// of the terms' length, so that the compiler drops the index
+			// checks from the loops below
+			C, S, cr, sr = C[:m], S[:m], cr[:m], sr[:m]
 			for i, t := range terms {
 				sr[i], cr[i] = math.Sincos(t.c * h)
 			}

@@ -198,11 +198,12 @@ func nutationDaily(jdes []float64, buf *sampleBuffers) (dpsi, deps []float64) {
 			var ps, pc float64
 			for i := range nutationTable {
 				m := &nutationTable[i]
-				if k > k0 {
-					C[i], S[i] = C[i]*cr[i]-S[i]*sr[i], S[i]*cr[i]+C[i]*sr[i]
-				}
 				ps += (m.s0 + m.s1*Tk) * S[i]
 				pc += (m.c0 + m.c1*Tk) * C[i]
+				// rotated on to the next sample here, not at the top of
+				// the loop, where the run's first sample would have to
+				// be told apart (the last sample's rotation goes unused)
+				C[i], S[i] = C[i]*cr[i]-S[i]*sr[i], S[i]*cr[i]+C[i]*sr[i]
 			}
 			dpsi[k], deps[k] = ps, pc
 		}

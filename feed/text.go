@@ -704,17 +704,7 @@ func appendDaily(b []byte, s *siteInfo, e Event) (_ []byte, title string, ok boo
 		return b, title, true
 	case "golden-hour", "blue-hour", config.KindSunBand:
 		bt := s.bandText(e)
-		// a span of a band that reaches over the horizon, entered and left
-		// through its lower bound by a Sun that does not rise (polar
-		// night), is twilight glow: no Sun to look at
-		part, glow := e.Part, e.Part == "all-day" && e.Altitude <= s.flatRise && e.High > s.flatRise
-		days := AroundTheClock(e) // near a pole the Sun may stay in the band for days
-		switch {
-		case days:
-			part = partDays
-		case glow:
-			part = partGlow
-		}
+		part, days, glow := spanPart(&e, s.flatRise)
 		title = bt.title(part)
 		z := s.zone
 		b = z.appendDayMark(z.appendClock(append(append(b, title...), " from "...), e.Start), e.Start, e.Date)
@@ -745,6 +735,49 @@ const (
 	partGlow = "glow"
 	partDays = "days"
 )
+
+// spanPart is the part of a band's span e as its title names it (see
+// bandPartWords): partDays when the Sun stays in the band for more than a
+// day (near a pole), partGlow for a span through noon of a Sun that does
+// not rise over a flat horizon (its centre at most flatRise: polar night),
+// which is twilight glow with no Sun to look at, else e.Part.
+func spanPart(e *Event, flatRise float64) (part string, days, glow bool) {
+	days = AroundTheClock(*e)
+	glow = e.Part == "all-day" && e.Altitude <= flatRise && e.High > flatRise
+	switch {
+	case days:
+		return partDays, true, glow
+	case glow:
+		return partGlow, false, true
+	}
+	return e.Part, false, false
+}
+
+// bandPartWords are the words in brackets after the name of the band kind
+// in the title of a span of part p (spanPart): partName's, but "through
+// midday" for a sun band's one span through noon (a high band's usual day,
+// not a low Sun).
+func bandPartWords(kind, p string) string {
+	if kind == config.KindSunBand && (p == "all-day" || p == partGlow) {
+		return "through midday"
+	}
+	return partName(p)
+}
+
+// SpanWords are the words a feed's title gives the part of a band's span
+// (golden hour, blue hour, sun-band), in brackets after the band's name:
+// "morning", "evening", "morning and evening in one", "around midnight",
+// "twilight glow, Sun below the horizon", "around the clock", "through
+// midday"; "" for the events of other kinds. o is the site's observer:
+// its elevation and air set the altitude at which the Sun rises over a
+// flat horizon, which tells twilight glow.
+func SpanWords(e Event, o astro.Observer) string {
+	if !isBand(e.Kind) {
+		return ""
+	}
+	p, _, _ := spanPart(&e, flatRiseAltitude(o))
+	return bandPartWords(e.Kind.Name, p)
+}
 
 // appendMerged appends to b, after a golden or blue hour's times, why a
 // span of part "all-day" or "night" is one span, with the Sun's highest
@@ -818,11 +851,7 @@ func (bt *bandText) title(p string) string {
 			return bt.titles[i]
 		}
 	}
-	part := partName(p)
-	if bt.name == config.KindSunBand && (p == "all-day" || p == partGlow) { // one span through noon: a high band's usual day, not a low Sun
-		part = "through midday"
-	}
-	t := bt.base + " (" + part + ")"
+	t := bt.base + " (" + bandPartWords(bt.name, p) + ")"
 	bt.parts, bt.titles = append(bt.parts, p), append(bt.titles, t)
 	return t
 }

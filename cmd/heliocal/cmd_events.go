@@ -525,7 +525,17 @@ func stateText(s astro.State) string {
 	return "no event on this date"
 }
 
+// details is detailsAt for a site at sea level, under a flat horizon and
+// standard air.
 func details(e *feed.Event, loc *time.Location) string {
+	return detailsAt(e, loc, astro.Observer{})
+}
+
+// detailsAt is the table's DETAILS of an event at the site of observer o.
+// A band's span is named in the words of the feeds' titles
+// (feed.SpanWords), with the Sun's highest (lowest) altitude when its
+// morning and evening (evening and morning) spans meet.
+func detailsAt(e *feed.Event, loc *time.Location, o astro.Observer) string {
 	var parts []string
 	switch {
 	case e.Open:
@@ -533,15 +543,16 @@ func details(e *feed.Event, loc *time.Location) string {
 	case !e.End.IsZero():
 		parts = append(parts, fmt.Sprintf("until %s%s (%s)", clock(e.End, loc), feed.DayMark(e.End, e.Date, loc), feed.Length(feed.ToSecond(e.End).Sub(feed.ToSecond(e.Start)), time.Minute)))
 	}
+	words := feed.SpanWords(*e, o)
 	switch {
-	case feed.AroundTheClock(*e):
-		parts = append(parts, "around the clock")
-	case feed.MergedSpan(*e) && e.Part == "night":
-		parts = append(parts, fmt.Sprintf("evening and morning in one, Sun at least %.2f°", e.Altitude))
-	case feed.MergedSpan(*e):
-		parts = append(parts, fmt.Sprintf("morning and evening in one, Sun at most %.2f°", e.Altitude))
-	case e.Part != "":
+	case words == "" && e.Part != "":
 		parts = append(parts, e.Part)
+	case feed.MergedSpan(*e) && !feed.AroundTheClock(*e) && e.Part == "night":
+		parts = append(parts, fmt.Sprintf("%s, Sun at least %.2f°", words, e.Altitude))
+	case feed.MergedSpan(*e) && !feed.AroundTheClock(*e):
+		parts = append(parts, fmt.Sprintf("%s, Sun at most %.2f°", words, e.Altitude))
+	case words != "":
+		parts = append(parts, words)
 	}
 	if e.Direction != 0 && (e.Kind.Name == "sun-altitude" || e.Kind.Name == "photoperiod" || e.Kind.Name == "noon-clear") {
 		parts = append(parts, direction(*e))

@@ -474,6 +474,7 @@ func (c *csvSink) close() error {
 type tableSink struct {
 	w      *bufio.Writer
 	loc    *time.Location
+	o      astro.Observer // the site's: the words of band spans (feed.SpanWords)
 	widths [3]int
 	header bool
 	rows   [][4]string
@@ -482,7 +483,7 @@ type tableSink struct {
 func newTableSink(w *bufio.Writer, s *config.Site) *tableSink {
 	loc := s.TimeZone.Location
 	fmt.Fprintf(w, "%s: %s, %g m, %s\n\n", s.Name, feed.Coords(s.Latitude, s.Longitude, 4), s.Elevation, loc)
-	return &tableSink{w: w, loc: loc}
+	return &tableSink{w: w, loc: loc, o: feed.PlaceOf(s).Observer}
 }
 
 func (t *tableSink) chunk(ch feed.Chunk) error {
@@ -501,7 +502,7 @@ func (t *tableSink) chunk(ch feed.Chunk) error {
 		if !e.DateOnly() {
 			at = feed.ToSecond(e.Start).In(t.loc).Format("15:04:05 MST") + feed.DayMark(e.Start, e.Date, t.loc)
 		}
-		t.rows = append(t.rows, [4]string{e.Date.Format("2006-01-02 Mon"), at, e.Kind.String(), details(e, t.loc)})
+		t.rows = append(t.rows, [4]string{e.Date.Format("2006-01-02 Mon"), at, e.Kind.String(), detailsAt(e, t.loc, t.o)})
 	}
 	for _, r := range t.rows {
 		for i := range t.widths {

@@ -4,9 +4,8 @@ import (
 	"bytes"
 	"compress/gzip"
 	"context"
-	"crypto/sha256"
-	"encoding/hex"
 	"errors"
+	"fmt"
 	"io"
 	"net/http"
 	"net/http/httptest"
@@ -18,6 +17,8 @@ import (
 	"sync/atomic"
 	"testing"
 	"time"
+
+	"github.com/cespare/xxhash/v2"
 )
 
 // today is the server's "now" in these tests.
@@ -546,13 +547,14 @@ func TestAdhocGzip(t *testing.T) {
 		t.Fatalf("status %d, Content-Encoding %q, want 200 gzip", gz.StatusCode, gz.Header.Get("Content-Encoding"))
 	}
 	raw := body(t, gz)
-	// both ETags are the SHA-256 of the gzip form (docs/serving.md), that
-	// of the gzip form with "-gz"
-	sum := sha256.Sum256([]byte(raw))
-	if e, want := gz.Header.Get("ETag"), `"`+hex.EncodeToString(sum[:])+`-gz"`; e != want {
+	// both ETags are the 64-bit xxHash of the gzip form in 16 hex digits
+	// (docs/serving.md), that of the gzip form with "-gz"; the test vector
+	// of the hash is checked in TestAdhocSum
+	sum := fmt.Sprintf("%016x", xxhash.Sum64String(raw))
+	if e, want := gz.Header.Get("ETag"), `"`+sum+`-gz"`; e != want {
 		t.Errorf("gzip ETag %q, want %q", e, want)
 	}
-	if e, want := plainResp.Header.Get("ETag"), `"`+hex.EncodeToString(sum[:])+`"`; e != want {
+	if e, want := plainResp.Header.Get("ETag"), `"`+sum+`"`; e != want {
 		t.Errorf("identity ETag %q, want %q", e, want)
 	}
 	zr, err := gzip.NewReader(strings.NewReader(raw))
@@ -579,6 +581,19 @@ func TestAdhocGzip(t *testing.T) {
 	other := get(t, h, "GET", strings.Replace(target, "lat=47.5", "lat=47.6", 1), "Accept-Encoding", "gzip")
 	if other.Header.Get("ETag") == gz.Header.Get("ETag") {
 		t.Errorf("another feed has the same ETag %q", other.Header.Get("ETag"))
+	}
+}
+
+// TestAdhocSum: the sum in an ad-hoc feed's ETags is the 64-bit xxHash
+// (XXH64, seed 0) in 16 hex digits, big-endian as the algorithm's own tool
+// prints it. Check values: XXH64 of the empty input and of "asdf" as the
+// xxHash reference tool prints them (`printf asdf | xxhsum -H1`, Debian's
+// xxhash package); the tests of github.com/cespare/xxhash/v2 state the same.
+func TestAdhocSum(t *testing.T) {
+	for in, want := range map[string]string{"": "ef46db3751d8e999", "asdf": "415872f599cea71e"} {
+		if got := adhocSum([]byte(in)); got != want {
+			t.Errorf("adhocSum(%q) = %s, want %s", in, got, want)
+		}
 	}
 }
 

@@ -16,8 +16,9 @@
 //	/healthz           JSON; 200 once feeds are served, 503 before the first good build
 //	/metrics           Prometheus text format
 //
-// Files are served with a strong ETag (the quoted SHA-256 of the bytes; the
-// gzip form has its own, ending in -gz"), Last-Modified, Cache-Control
+// Files are served with a strong ETag (the quoted SHA-256 of the bytes, for
+// an ad-hoc feed the 64-bit xxHash of its gzip form; the gzip form has its
+// own, ending in -gz"), Last-Modified, Cache-Control
 // public with max-age equal to the refresh interval (1 minute to 24 hours),
 // Vary: Accept-Encoding, and Access-Control-Allow-Origin: * on .ics and
 // .json. Conditional requests (If-None-Match, If-Modified-Since), HEAD and

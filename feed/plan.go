@@ -434,17 +434,19 @@ func (c *collector) kindTimes(k config.Kind, kt *kindTimes) (*kindTimes, error) 
 // planDates lists the local dates first..last a date rule gives.
 func (sky *Sky) planDates(ctx context.Context, p Place, r config.DateRule, first, last time.Time) ([]planDate, error) {
 	var out []planDate
+	// first and last are civil dates (00:00 UTC, see collector): a date
+	// is the one before plus 24 h
 	switch r.Type {
 	case config.RuleEveryDay:
 		out = make([]planDate, 0, daysBetween(first, last)+1)
-		for d := first; !d.After(last); d = d.AddDate(0, 0, 1) {
+		for d := first; !d.After(last); d = d.Add(24 * time.Hour) {
 			out = append(out, planDate{date: d})
 		}
 		return out, nil
 	case config.RuleWeekly:
 		ahead := (int(r.Weekday-first.Weekday()) + 7) % 7
 		out = make([]planDate, 0, daysBetween(first, last)/7+1)
-		for d := first.AddDate(0, 0, ahead); !d.After(last); d = d.AddDate(0, 0, 7) {
+		for d := first.Add(time.Duration(ahead) * 24 * time.Hour); !d.After(last); d = d.Add(7 * 24 * time.Hour) {
 			out = append(out, planDate{date: d})
 		}
 		return out, nil
@@ -477,6 +479,11 @@ func (sky *Sky) planDates(ctx context.Context, p Place, r config.DateRule, first
 			return nil, err
 		}
 		z := newZoneCache(p.Location)
+		if r.Event.Name == "moon-phases" {
+			evs = make([]anchor, 0, len(ps))
+		} else {
+			evs = make([]anchor, 0, len(ps)/4+2) // one phase of four
+		}
 		for _, ph := range ps {
 			if name := phaseNames[ph.Kind]; r.Event.Name == name || r.Event.Name == "moon-phases" {
 				if d := z.date(ph.Time); c.inRange(d) {
@@ -494,6 +501,7 @@ func (sky *Sky) planDates(ctx context.Context, p Place, r config.DateRule, first
 		}
 	}
 	slices.SortStableFunc(evs, func(a, b anchor) int { return a.at.Compare(b.at) })
+	out = make([]planDate, 0, len(evs))
 	for _, e := range evs {
 		d := e.day
 		if r.Type == config.RuleWeekdayOf {

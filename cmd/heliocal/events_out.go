@@ -164,7 +164,7 @@ func (j *jsonSink) event(e *feed.Event) {
 		b = append(b, ',')
 	}
 	j.events++
-	k := j.kind(e.Kind, e.Direction)
+	k := j.kind(&e.Kind, e.Direction)
 	if !k.plain || e.DirectSun {
 		obj, err := json.MarshalIndent(toJSONEvent(*e), "    ", "  ")
 		if err != nil { // plain strings and finite numbers: cannot fail
@@ -217,21 +217,21 @@ func (j *jsonSink) event(e *feed.Event) {
 // day, so the kind that followed the last one (in the last one's
 // direction: a threshold crossed rising is followed by another kind than
 // when crossed setting) the time before is tried first.
-func (j *jsonSink) kind(k config.Kind, d astro.Direction) *jsonKind {
+func (j *jsonSink) kind(k *config.Kind, d astro.Direction) *jsonKind {
 	dir := dirIndex(d)
 	if j.last > 0 {
-		if n := j.kinds[j.last-1].next[j.lastDir]; n > 0 && sameKind(&j.kinds[n-1].kind, &k) {
+		if n := j.kinds[j.last-1].next[j.lastDir]; n > 0 && sameKind(&j.kinds[n-1].kind, k) {
 			j.last, j.lastDir = n, dir
 			return &j.kinds[n-1]
 		}
 	}
 	for i := range j.kinds {
-		if sameKind(&j.kinds[i].kind, &k) {
+		if sameKind(&j.kinds[i].kind, k) {
 			j.follow(i, dir)
 			return &j.kinds[i]
 		}
 	}
-	jk := jsonKind{kind: k, plain: plainJSONKinds[k.Name], noon: k.Name == "solar-noon",
+	jk := jsonKind{kind: *k, plain: plainJSONKinds[k.Name], noon: k.Name == "solar-noon",
 		rise: k.Name == "sunrise" || k.Name == "sunset"}
 	jk.head = string(append(appendJSONString([]byte("\n    {\n      \"kind\": "), k.String()), ",\n      \"start\": \""...))
 	j.kinds = append(j.kinds, jk)
@@ -311,17 +311,24 @@ func (j *jsonSink) close() error {
 // in UTC as jsonTime writes it (2027-01-01T06:42:12.854Z), for years
 // 0–9999.
 func (c *dayCache) appendUTCMillis(b []byte, t time.Time) []byte {
-	sec, ms := t.Unix(), (t.Nanosecond()+500_000)/1_000_000 // half a millisecond rounds up, as time.Round
+	sec, ms := t.Unix(), uint((t.Nanosecond()+500_000)/1_000_000) // half a millisecond rounds up, as time.Round
 	if ms == 1000 {
 		sec, ms = sec+1, 0
 	}
-	days, s := floorDiv(sec, 86400)
+	days, r := floorDiv(sec, 86400)
 	b = c.appendDay(b, days)
-	h, mi := s/3600, s/60%60
-	s %= 60
-	return append(b, 'T', byte('0'+h/10), byte('0'+h%10), ':', byte('0'+mi/10), byte('0'+mi%10), ':',
-		byte('0'+s/10), byte('0'+s%10), '.', byte('0'+ms/100), byte('0'+ms/10%10), byte('0'+ms%10), 'Z')
+	s := uint(r)
+	h, m := s/3600*2, s/60%60*2 // offsets in twoDigits
+	s = s % 60 * 2
+	f := ms % 100 * 2
+	return append(b, 'T', twoDigits[h], twoDigits[h+1], ':', twoDigits[m], twoDigits[m+1], ':',
+		twoDigits[s], twoDigits[s+1], '.', byte('0'+ms/100), twoDigits[f], twoDigits[f+1], 'Z')
 }
+
+// twoDigits holds 00 to 99: the digits of n are twoDigits[2n:2n+2].
+const twoDigits = "00010203040506070809101112131415161718192021222324252627282930313233343536373839" +
+	"40414243444546474849505152535455565758596061626364656667686970717273747576777879" +
+	"8081828384858687888990919293949596979899"
 
 // appendCivilDate appends the UTC date of t as YYYY-MM-DD.
 func (c *dayCache) appendCivilDate(b []byte, t time.Time) []byte {

@@ -139,14 +139,14 @@ func slowSum(vals []float64, series [][]vsopTerm, tau []float64, n int) {
 				if i%slowRestart == 0 {
 					for j := range sunChebNodes {
 						S[j], C[j] = math.Sincos(t.b + t.c*ts[j])
+						ps[j] += t.a * C[j]
 					}
 				} else {
 					for j := range sunChebNodes {
-						C[j], S[j] = C[j]*cr-S[j]*sr, S[j]*cr+C[j]*sr
+						c := C[j]*cr - S[j]*sr
+						C[j], S[j] = c, S[j]*cr+C[j]*sr
+						ps[j] += t.a * c
 					}
-				}
-				for j := range sunChebNodes {
-					ps[j] += t.a * C[j]
 				}
 			}
 		}

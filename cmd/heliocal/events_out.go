@@ -390,20 +390,33 @@ func appendRounded(b []byte, x float64, digits int) []byte {
 	if i < 0 {
 		b, i = append(b, '-'), -i
 	}
-	p := int64(scale)
-	b = strconv.AppendInt(b, i/p, 10)
-	f := i % p
-	if f == 0 {
-		return b
+	// the digits of i from the right, into d[p:end]: the fraction's
+	// digits-many (its zeros on the right dropped, and the point with them
+	// when all are), then the whole part's
+	u := uint64(i)
+	var d [24]byte
+	p, end := len(d), len(d)
+	for range digits {
+		p--
+		d[p] = byte('0' + u%10)
+		u /= 10
+		if end == p+1 && d[p] == '0' {
+			end = p
+		}
 	}
-	for f%10 == 0 {
-		f, digits = f/10, digits-1
+	if end > p {
+		p--
+		d[p] = '.'
 	}
-	var frac [6]byte // the fraction's digits, leading zeros included
-	for k := digits - 1; k >= 0; k-- {
-		frac[k], f = byte('0'+f%10), f/10
+	for {
+		p--
+		d[p] = byte('0' + u%10)
+		u /= 10
+		if u == 0 {
+			break
+		}
 	}
-	return append(append(b, '.'), frac[:digits]...)
+	return append(b, d[p:end]...)
 }
 
 var pow10 = [...]float64{1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6}

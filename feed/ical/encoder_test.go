@@ -2,7 +2,6 @@ package ical
 
 import (
 	"bytes"
-	"crypto/sha256"
 	"errors"
 	"fmt"
 	"math/rand"
@@ -36,43 +35,6 @@ func TestEncoderReuse(t *testing.T) {
 			t.Fatalf("calendar %d: Append wrote %d bytes differing from Marshal's %d", i, len(got)-len(prefix), len(want))
 		}
 		buf = got
-	}
-}
-
-// TestEncoderAppendDigest: AppendDigest appends Marshal's bytes, as Append
-// does, and leaves in the digest (one, reused from calendar to calendar,
-// after a failing one too) the SHA-256 of the appended bytes alone,
-// whatever the buffer held before them.
-func TestEncoderAppendDigest(t *testing.T) {
-	cals := encoderCalendars(t, 5, 30)
-	enc := NewEncoder(Options{Version: "test"})
-	h := sha256.New()
-	h.Write([]byte("left over from before"))
-	var buf []byte
-	sized := 0
-	for i, c := range cals {
-		want, werr := Marshal(c, Options{Version: "test"})
-		prefix := []byte("keep:")
-		got, err := enc.AppendDigest(append(buf[:0], prefix...), c, h)
-		if (err != nil) != (werr != nil) {
-			t.Fatalf("calendar %d: error %v, Marshal's %v", i, err, werr)
-		}
-		if err != nil {
-			continue
-		}
-		if !bytes.HasPrefix(got, prefix) || !bytes.Equal(got[len(prefix):], want) {
-			t.Fatalf("calendar %d: AppendDigest wrote %d bytes differing from Marshal's %d", i, len(got)-len(prefix), len(want))
-		}
-		if sum := sha256.Sum256(want); !bytes.Equal(h.Sum(nil), sum[:]) {
-			t.Fatalf("calendar %d (%d bytes): digest %x, want the SHA-256 of the file %x", i, len(want), h.Sum(nil), sum)
-		}
-		if len(want) > 3*streamPiece {
-			sized++
-		}
-		buf = got
-	}
-	if sized == 0 {
-		t.Fatalf("no calendar of several pieces (%d bytes) among %d", 3*streamPiece, len(cals))
 	}
 }
 
@@ -151,36 +113,6 @@ func BenchmarkEncoderAppend(b *testing.B) {
 		}
 	}
 	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*len(c.Entries)), "ns/event")
-}
-
-// BenchmarkEncoderAppendDigest is BenchmarkEncoderAppend with the
-// file's SHA-256, as publish takes it: "after" hashes the whole file once
-// it is complete, "pieces" hands each piece to the digest as it is
-// rendered (AppendDigest).
-func BenchmarkEncoderAppendDigest(b *testing.B) {
-	c := siteYear(b, "Europe/Vienna")
-	enc := NewEncoder(Options{Version: "bench"})
-	h := sha256.New()
-	var buf []byte
-	var sum [sha256.Size]byte
-	b.Run("after", func(b *testing.B) {
-		for b.Loop() {
-			var err error
-			if buf, err = enc.Append(buf[:0], c); err != nil {
-				b.Fatal(err)
-			}
-			sum = sha256.Sum256(buf)
-		}
-	})
-	b.Run("pieces", func(b *testing.B) {
-		for b.Loop() {
-			var err error
-			if buf, err = enc.AppendDigest(buf[:0], c, h); err != nil {
-				b.Fatal(err)
-			}
-			h.Sum(sum[:0])
-		}
-	})
 }
 
 // TestUIDSet: the duplicate check's set against a map, over calendars of

@@ -54,7 +54,6 @@ package ical
 import (
 	"encoding/binary"
 	"fmt"
-	"hash"
 	"hash/maphash"
 	"io"
 	"math"
@@ -130,16 +129,6 @@ func NewEncoder(opts Options) *Encoder { return &Encoder{opts: opts} }
 // (dst is grown once, to the estimated size, when it has too little room).
 // On error dst is returned unchanged, with nothing appended.
 func (e *Encoder) Append(dst []byte, c *feed.Calendar) ([]byte, error) {
-	return e.AppendDigest(dst, c, nil)
-}
-
-// AppendDigest is Append that also writes the appended bytes to h (reset
-// first), a piece of about streamPiece bytes at a time as soon as it is
-// rendered, while it is still in the processor's cache: a digest of the
-// whole file taken after it is complete reads it back from memory. On
-// success h holds exactly the appended bytes; on error its state is
-// undefined. A nil h is Append.
-func (e *Encoder) AppendDigest(dst []byte, c *feed.Calendar, h hash.Hash) ([]byte, error) {
 	cal, size, err := e.build(c)
 	if err != nil {
 		return dst, err
@@ -151,16 +140,12 @@ func (e *Encoder) AppendDigest(dst []byte, c *feed.Calendar, h hash.Hash) ([]byt
 		copy(grown, dst)
 		dst = grown
 	}
-	out := &appendWriter{b: dst, sum: h, summed: len(dst)}
-	if h != nil {
-		h.Reset()
-	}
+	out := &appendWriter{b: dst}
 	err = cal.SerializeTo(out, ics.WithNewLineWindows)
 	e.release(cal)
 	if err != nil {
 		return dst, fmt.Errorf("ical: calendar %q: %w", c.ID, err)
 	}
-	out.digest()
 	return out.b, nil
 }
 
@@ -196,15 +181,11 @@ const streamPiece = 32 << 10
 // its buffer. The events recognise it and append their lines directly,
 // without a copy through Write. With out (see WriteTo) the buffer is
 // written to out and emptied whenever it holds streamPiece bytes or more.
-// With sum (see AppendDigest) the bytes from summed on are written to sum
-// whenever there are streamPiece of them.
 type appendWriter struct {
-	b      []byte
-	out    io.Writer
-	n      int64 // bytes written to out
-	err    error // out's first error; nothing is written after it
-	sum    hash.Hash
-	summed int // b[:summed] has been written to sum (or is not ours)
+	b   []byte
+	out io.Writer
+	n   int64 // bytes written to out
+	err error // out's first error; nothing is written after it
 }
 
 func (a *appendWriter) Write(p []byte) (int, error) {
@@ -213,22 +194,10 @@ func (a *appendWriter) Write(p []byte) (int, error) {
 	return len(p), a.err
 }
 
-// pieceDone writes the buffer to out once it holds a piece, or the bytes
-// not yet in sum once there is a piece of them.
+// pieceDone writes the buffer to out once it holds a piece.
 func (a *appendWriter) pieceDone() {
 	if a.out != nil && len(a.b) >= streamPiece {
 		a.flush()
-	}
-	if a.sum != nil && len(a.b)-a.summed >= streamPiece {
-		a.digest()
-	}
-}
-
-// digest writes the bytes not yet in sum (if any) to it.
-func (a *appendWriter) digest() {
-	if a.sum != nil {
-		a.sum.Write(a.b[a.summed:])
-		a.summed = len(a.b)
 	}
 }
 

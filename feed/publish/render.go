@@ -215,7 +215,7 @@ func renderOne(ctx context.Context, s Source, enc encodeFunc, base *url.URL, dst
 	if cal.ID != s.ID {
 		return rendered{}, fmt.Errorf("publish: feed %s: calendar has id %q", s.ID, cal.ID)
 	}
-	data, sum, err := enc(dst[:0], cal)
+	data, err := enc(dst[:0], cal)
 	events := len(cal.Entries)
 	if s.Release {
 		cal.Release()
@@ -224,6 +224,7 @@ func renderOne(ctx context.Context, s Source, enc encodeFunc, base *url.URL, dst
 		return rendered{data: data}, fmt.Errorf("publish: feed %s: %w", s.ID, err)
 	}
 	name := s.ID + ".ics"
+	sum := checksum(data)
 	u := cal.URL
 	if base != nil {
 		u = base.JoinPath(name).String()

@@ -47,7 +47,7 @@ func encodeFeed(t *testing.T, cfg *config.Config, f *config.Feed, opts *RenderOp
 	if err != nil {
 		t.Fatal(err)
 	}
-	data, _, err := opts.encoder()(nil, cal)
+	data, err := opts.encoder()(nil, cal)
 	return cal, data, err
 }
 

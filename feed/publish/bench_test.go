@@ -12,36 +12,15 @@ import (
 
 	"heliocal/config"
 	"heliocal/feed"
+	"heliocal/internal/fleet"
 )
 
-// fleetConfig writes a configuration of n invented sites spread around ten
-// regions (jittered a little each), each with one feed of the daily kinds
-// over 400 days (30 back, 369 ahead).
+// fleetConfig parses the configuration of n invented sites (internal/fleet)
+// spread around ten regions, each with one feed of the daily kinds over 400
+// days (30 back, 369 ahead).
 func fleetConfig(tb testing.TB, n int) *config.Config {
 	tb.Helper()
-	regions := []struct {
-		lat, lon float64
-		zone     string
-	}{
-		{48.2, 16.4, "Europe/Vienna"}, {-41.3, 173.0, "Pacific/Auckland"}, {39.1, -105.4, "America/Denver"},
-		{59.9, 10.7, "Europe/Oslo"}, {-23.5, -46.6, "America/Sao_Paulo"}, {35.7, 139.7, "Asia/Tokyo"},
-		{22.6, 88.4, "Asia/Kolkata"}, {-33.9, 151.2, "Australia/Sydney"}, {42.4, -76.5, "America/New_York"},
-		{-1.3, 36.8, "Africa/Nairobi"},
-	}
-	var b strings.Builder
-	b.WriteString("sites:\n")
-	for i := range n {
-		r := regions[i%len(regions)]
-		j := float64(i/len(regions)) * 0.017
-		fmt.Fprintf(&b, "  - {id: site-%04d, name: Fleet site %d, latitude: %.4f, longitude: %.4f, elevation: %d, timezone: %s}\n",
-			i, i, r.lat+j, r.lon+j, 10*(i%50), r.zone)
-	}
-	b.WriteString("feeds:\n")
-	for i := range n {
-		fmt.Fprintf(&b, "  - {id: site-%04d-daily, title: Fleet site %d daily sun, site: site-%04d, days_back: 30, days_ahead: 369,\n"+
-			"     kinds: [sunrise, sunset, civil-dawn, civil-dusk, golden-hour]}\n", i, i, i)
-	}
-	cfg, err := config.Parse(strings.NewReader(b.String()), "yaml")
+	cfg, err := config.Parse(strings.NewReader(fleet.YAML(n)), "yaml")
 	if err != nil {
 		tb.Fatal(err)
 	}

@@ -15,8 +15,6 @@ import (
 	"sync"
 	"time"
 
-	"github.com/prometheus/client_golang/prometheus/promhttp"
-
 	"heliocal/internal/schedule"
 )
 
@@ -44,10 +42,7 @@ var (
 )
 
 func (s *Server) newHandler() http.Handler {
-	metricsHandler := promhttp.HandlerFor(s.gatherer, promhttp.HandlerOpts{
-		ErrorLog:      slogPrinter{s},
-		ErrorHandling: promhttp.ContinueOnError,
-	})
+	metricsHandler := s.registry
 	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
 		start := time.Now()
 		rec := recorderPool.Get().(*recorder)
@@ -391,10 +386,5 @@ func (r *recorder) Write(p []byte) (int, error) {
 
 // Unwrap lets http.ResponseController reach the connection.
 func (r *recorder) Unwrap() http.ResponseWriter { return r.ResponseWriter }
-
-// slogPrinter passes promhttp's errors to the server's logger.
-type slogPrinter struct{ s *Server }
-
-func (p slogPrinter) Println(v ...any) { p.s.log.Error("metrics: " + fmt.Sprint(v...)) }
 
 var errAdhocBusy = errors.New("serve: too many ad-hoc feeds being built")

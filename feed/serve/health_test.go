@@ -8,8 +8,6 @@ import (
 	"testing"
 	"time"
 
-	"github.com/prometheus/client_golang/prometheus"
-
 	"heliocal/feed/publish"
 )
 
@@ -17,9 +15,9 @@ import (
 // a reload succeeds) and while the feeds are older than two refresh
 // periods; /metrics counts the refused reloads. The clock is injected.
 func TestHealthDegraded(t *testing.T) {
-	reg := prometheus.NewRegistry()
+	reg := NewRegistry()
 	b := &builder{b: testBundle("a")}
-	s, err := New(Options{Build: b.build, Logger: quiet(), Registerer: reg, Gatherer: reg,
+	s, err := New(Options{Build: b.build, Logger: quiet(), Metrics: reg,
 		Schedule: "15 3 * * *", ScheduleZone: time.UTC})
 	if err != nil {
 		t.Fatal(err)

@@ -14,8 +14,6 @@ import (
 	"testing"
 	"time"
 
-	"github.com/prometheus/client_golang/prometheus"
-
 	"heliocal/feed/publish"
 )
 
@@ -125,9 +123,8 @@ func newTestServer(t testing.TB, opts Options) (*Server, *builder) {
 	if opts.Logger == nil {
 		opts.Logger = quiet()
 	}
-	if opts.Registerer == nil {
-		reg := prometheus.NewRegistry()
-		opts.Registerer, opts.Gatherer = reg, reg
+	if opts.Metrics == nil {
+		opts.Metrics = NewRegistry()
 	}
 	s, err := New(opts)
 	if err != nil {

@@ -11,8 +11,6 @@ import (
 	"testing/synctest"
 	"time"
 
-	"github.com/prometheus/client_golang/prometheus"
-
 	"heliocal/feed/publish"
 )
 
@@ -49,11 +47,11 @@ func waitHealthy(t *testing.T, base string) {
 func TestGracefulShutdown(t *testing.T) {
 	entered := make(chan struct{})
 	release := make(chan struct{})
-	reg := prometheus.NewRegistry()
+	reg := NewRegistry()
 	s, err := New(Options{
-		Build:      func(context.Context) (*publish.Bundle, error) { return testBundle("a"), nil },
-		Logger:     quiet(),
-		Registerer: reg, Gatherer: reg,
+		Build:   func(context.Context) (*publish.Bundle, error) { return testBundle("a"), nil },
+		Logger:  quiet(),
+		Metrics: reg,
 		Adhoc: writes(func(ctx context.Context, q AdhocQuery) ([]byte, error) {
 			close(entered)
 			<-release
@@ -116,7 +114,7 @@ func TestGracefulShutdown(t *testing.T) {
 // 503 until a build succeeds, then 200.
 func TestRunServesBeforeFirstBuild(t *testing.T) {
 	gate := make(chan struct{})
-	reg := prometheus.NewRegistry()
+	reg := NewRegistry()
 	s, err := New(Options{
 		Build: func(ctx context.Context) (*publish.Bundle, error) {
 			select {
@@ -126,7 +124,7 @@ func TestRunServesBeforeFirstBuild(t *testing.T) {
 				return nil, ctx.Err()
 			}
 		},
-		Logger: quiet(), Registerer: reg, Gatherer: reg,
+		Logger: quiet(), Metrics: reg,
 	})
 	if err != nil {
 		t.Fatal(err)
@@ -162,7 +160,7 @@ func TestInitialBuildRetries(t *testing.T) {
 		var attempts []time.Duration
 		start := time.Now()
 		var n atomic.Int32
-		reg := prometheus.NewRegistry()
+		reg := NewRegistry()
 		s, err := New(Options{
 			Build: func(context.Context) (*publish.Bundle, error) {
 				attempts = append(attempts, time.Since(start))
@@ -171,7 +169,7 @@ func TestInitialBuildRetries(t *testing.T) {
 				}
 				return testBundle("a"), nil
 			},
-			Logger: quiet(), Registerer: reg, Gatherer: reg,
+			Logger: quiet(), Metrics: reg,
 			RetryMin: 10 * time.Second, RetryMax: 30 * time.Second,
 		})
 		if err != nil {
@@ -202,8 +200,8 @@ func TestInitialBuildRetries(t *testing.T) {
 func TestScheduledRefresh(t *testing.T) {
 	synctest.Test(t, func(t *testing.T) {
 		b := &builder{b: testBundle("a")}
-		reg := prometheus.NewRegistry()
-		s, err := New(Options{Build: b.build, Logger: quiet(), Registerer: reg, Gatherer: reg,
+		reg := NewRegistry()
+		s, err := New(Options{Build: b.build, Logger: quiet(), Metrics: reg,
 			Schedule: "15 3 * * *", ScheduleZone: time.UTC})
 		if err != nil {
 			t.Fatal(err)

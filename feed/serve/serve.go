@@ -40,8 +40,6 @@ import (
 	"sync/atomic"
 	"time"
 
-	"github.com/prometheus/client_golang/prometheus"
-
 	"heliocal/config"
 	"heliocal/feed/publish"
 	"heliocal/internal/schedule"
@@ -94,10 +92,10 @@ type Options struct {
 	// Logger. Give a logger whose handler discards to turn access logs off.
 	AccessLogger *slog.Logger
 
-	// Registerer and Gatherer are where the metrics go and what /metrics
-	// shows. Both nil: a private registry with Go and process metrics.
-	Registerer prometheus.Registerer
-	Gatherer   prometheus.Gatherer
+	// Metrics is where the server's metrics go and what /metrics shows
+	// (make it with NewRegistry; one server per registry). Nil: a private
+	// registry with the process's and the Go runtime's metrics as well.
+	Metrics *Registry
 
 	// Build renders every feed; called at start, on schedule and by Refresh.
 	Build BuildFunc
@@ -171,7 +169,7 @@ type Server struct {
 	opts     Options
 	log      *slog.Logger
 	access   *slog.Logger
-	gatherer prometheus.Gatherer
+	registry *Registry
 	metrics  *metrics
 	sched    *schedule.Scheduler
 	handler  http.Handler
@@ -248,14 +246,13 @@ func New(opts Options) (*Server, error) {
 	}
 
 	var err error
-	var reg prometheus.Registerer
-	if reg, s.gatherer, err = registry(opts.Registerer, opts.Gatherer); err != nil {
+	if s.registry, err = registry(opts.Metrics); err != nil {
 		return nil, err
 	}
-	if s.metrics, err = newMetrics(reg); err != nil {
+	if s.metrics, err = newMetrics(s.registry); err != nil {
 		return nil, err
 	}
-	if err := registerBuildInfo(reg, opts.Version, opts.Revision); err != nil {
+	if err := registerBuildInfo(s.registry, opts.Version, opts.Revision); err != nil {
 		return nil, err
 	}
 

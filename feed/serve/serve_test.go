@@ -20,8 +20,6 @@ import (
 	"testing"
 	"time"
 
-	"github.com/prometheus/client_golang/prometheus"
-
 	"heliocal/feed/publish"
 )
 
@@ -231,9 +229,9 @@ func TestMethodNotAllowed(t *testing.T) {
 }
 
 func TestHealthz(t *testing.T) {
-	reg := prometheus.NewRegistry()
+	reg := NewRegistry()
 	b := &builder{err: errors.New("config: sites[0].latitude: must be within -90..90")}
-	s, err := New(Options{Build: b.build, Logger: quiet(), Registerer: reg, Gatherer: reg, ScheduleZone: time.UTC})
+	s, err := New(Options{Build: b.build, Logger: quiet(), Metrics: reg, ScheduleZone: time.UTC})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -495,7 +493,7 @@ func (l *lockedBuf) Write(p []byte) (int, error) {
 }
 
 func TestNewOptions(t *testing.T) {
-	reg := prometheus.NewRegistry()
+	reg := NewRegistry()
 	build := func(context.Context) (*publish.Bundle, error) { return nil, nil }
 	for _, tc := range []struct {
 		name string
@@ -506,17 +504,17 @@ func TestNewOptions(t *testing.T) {
 		{"bad schedule", Options{Build: build, Schedule: "every night"}, `"every night"`},
 		{"bad default kinds", Options{Build: build, AdhocDefaultKinds: []string{"sunrise", "sunrse"}}, `kinds="sunrse"`},
 		{"default days", Options{Build: build, AdhocMaxDays: 30, AdhocDefaultDays: 60}, "AdhocDefaultDays"},
-		{"gatherer only", Options{Build: build, Gatherer: reg}, "Registerer"},
+		{"registry not made by NewRegistry", Options{Build: build, Metrics: &Registry{}}, "NewRegistry"},
 	} {
 		if _, err := New(tc.opts); err == nil || !strings.Contains(err.Error(), tc.want) {
 			t.Errorf("%s: New error %v, want one naming %s", tc.name, err, tc.want)
 		}
 	}
 	// The same registry twice: the second server's metrics collide.
-	if _, err := New(Options{Build: build, Registerer: reg}); err != nil {
+	if _, err := New(Options{Build: build, Metrics: reg}); err != nil {
 		t.Fatal(err)
 	}
-	if _, err := New(Options{Build: build, Registerer: reg}); err == nil {
+	if _, err := New(Options{Build: build, Metrics: reg}); err == nil {
 		t.Error("second server on the same registry: no error")
 	}
 }

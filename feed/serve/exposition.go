@@ -1,0 +1,618 @@
+package serve
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"math"
+	"net/http"
+	"os"
+	"runtime"
+	"runtime/debug"
+	rtmetrics "runtime/metrics"
+	"slices"
+	"strconv"
+	"strings"
+	"sync"
+	"sync/atomic"
+	"syscall"
+	"time"
+)
+
+// The metrics /metrics shows, written in the Prometheus text exposition
+// format 0.0.4 (docs/serving.md): counters, gauges and histograms, with or
+// without labels, and the process's and the Go runtime's own figures. A
+// registry of its own rather than a client library: a library's package
+// initialisation (its default registry and collectors) ran in every command
+// of the program, `heliocal events` among them, for a server only `serve`
+// starts.
+
+// Registry holds a server's metrics and writes them for /metrics. The zero
+// value is not usable: make one with NewRegistry.
+type Registry struct {
+	mu       sync.Mutex
+	families map[string]family
+}
+
+// NewRegistry returns an empty registry; New adds the server's metrics to it
+// (and the process's and the runtime's when Options.Metrics is nil).
+func NewRegistry() *Registry { return &Registry{families: map[string]family{}} }
+
+// family is one metric name's help, type and series.
+type family interface {
+	name() string
+	write(b []byte) []byte
+}
+
+// register adds f, or returns an error when its name is taken.
+func (r *Registry) register(f family) error {
+	r.mu.Lock()
+	defer r.mu.Unlock()
+	if _, ok := r.families[f.name()]; ok {
+		return fmt.Errorf("metric %s registered twice", f.name())
+	}
+	r.families[f.name()] = f
+	return nil
+}
+
+// WriteText appends every metric in the text format, by name.
+func (r *Registry) WriteText(b []byte) []byte {
+	r.mu.Lock()
+	fs := make([]family, 0, len(r.families))
+	for _, f := range r.families {
+		fs = append(fs, f)
+	}
+	r.mu.Unlock()
+	slices.SortFunc(fs, func(a, b family) int { return strings.Compare(a.name(), b.name()) })
+	for _, f := range fs {
+		b = f.write(b)
+	}
+	return b
+}
+
+// ServeHTTP writes the metrics as text/plain; version=0.0.4.
+func (r *Registry) ServeHTTP(w http.ResponseWriter, _ *http.Request) {
+	w.Header().Set("Content-Type", "text/plain; version=0.0.4; charset=utf-8")
+	w.Write(r.WriteText(nil))
+}
+
+// desc is what every family has: its name, help, type and label names.
+type desc struct {
+	n, help, typ string
+	labels       []string // in the order WithLabelValues takes them
+}
+
+func (d *desc) name() string { return d.n }
+
+// header appends the # HELP and # TYPE lines.
+func (d *desc) header(b []byte) []byte {
+	b = append(b, "# HELP "...)
+	b = append(b, d.n...)
+	b = append(b, ' ')
+	for _, c := range []byte(d.help) {
+		switch c {
+		case '\\':
+			b = append(b, `\\`...)
+		case '\n':
+			b = append(b, `\n`...)
+		default:
+			b = append(b, c)
+		}
+	}
+	b = append(b, "\n# TYPE "...)
+	b = append(b, d.n...)
+	b = append(b, ' ')
+	b = append(b, d.typ...)
+	return append(b, '\n')
+}
+
+// series appends a sample line: the name with suffix, the labels (sorted
+// by name, with extra, such as le, last) and the value.
+func (d *desc) series(b []byte, suffix string, values []string, extra, extraValue string, v float64) []byte {
+	b = append(b, d.n...)
+	b = append(b, suffix...)
+	if len(d.labels) > 0 || extra != "" {
+		b = append(b, '{')
+		order := make([]int, len(d.labels))
+		for i := range order {
+			order[i] = i
+		}
+		slices.SortFunc(order, func(x, y int) int { return strings.Compare(d.labels[x], d.labels[y]) })
+		for k, i := range order {
+			if k > 0 {
+				b = append(b, ',')
+			}
+			b = appendLabel(b, d.labels[i], values[i])
+		}
+		if extra != "" {
+			if len(order) > 0 {
+				b = append(b, ',')
+			}
+			b = appendLabel(b, extra, extraValue)
+		}
+		b = append(b, '}')
+	}
+	b = append(b, ' ')
+	b = appendValue(b, v)
+	return append(b, '\n')
+}
+
+func appendLabel(b []byte, name, value string) []byte {
+	b = append(b, name...)
+	b = append(b, `="`...)
+	for _, c := range []byte(value) {
+		switch c {
+		case '\\':
+			b = append(b, `\\`...)
+		case '"':
+			b = append(b, `\"`...)
+		case '\n':
+			b = append(b, `\n`...)
+		default:
+			b = append(b, c)
+		}
+	}
+	return append(b, '"')
+}
+
+// appendValue writes a sample value as the text format does: +Inf, -Inf,
+// NaN, else the shortest decimal that reads back exactly.
+func appendValue(b []byte, v float64) []byte {
+	switch {
+	case math.IsInf(v, 1):
+		return append(b, "+Inf"...)
+	case math.IsInf(v, -1):
+		return append(b, "-Inf"...)
+	case math.IsNaN(v):
+		return append(b, "NaN"...)
+	}
+	return strconv.AppendFloat(b, v, 'g', -1, 64)
+}
+
+// atomicFloat is a float64 updated without a lock.
+type atomicFloat struct{ bits atomic.Uint64 }
+
+func (f *atomicFloat) load() float64   { return math.Float64frombits(f.bits.Load()) }
+func (f *atomicFloat) store(v float64) { f.bits.Store(math.Float64bits(v)) }
+func (f *atomicFloat) add(v float64) {
+	for {
+		old := f.bits.Load()
+		if f.bits.CompareAndSwap(old, math.Float64bits(math.Float64frombits(old)+v)) {
+			return
+		}
+	}
+}
+
+// vec holds the children of a labelled family by their label values, in the
+// order they were first asked for.
+type vec[T any] struct {
+	mu       sync.Mutex
+	children map[string]*T
+	values   [][]string
+	make     func() *T
+}
+
+func (v *vec[T]) with(n int, values []string) *T {
+	if len(values) != n {
+		panic(fmt.Sprintf("metrics: %d label values for %d labels", len(values), n))
+	}
+	key := strings.Join(values, "\xff")
+	v.mu.Lock()
+	defer v.mu.Unlock()
+	c, ok := v.children[key]
+	if !ok {
+		if v.children == nil {
+			v.children = map[string]*T{}
+		}
+		c = v.make()
+		v.children[key] = c
+		v.values = append(v.values, slices.Clone(values))
+	}
+	return c
+}
+
+// each calls fn for every child, in the order of their label values taken
+// by label name (names: the family's labels), as Prometheus writes them.
+func (v *vec[T]) each(names []string, fn func(values []string, c *T)) {
+	v.mu.Lock()
+	values := slices.Clone(v.values)
+	children := make([]*T, len(values))
+	for i, vs := range values {
+		children[i] = v.children[strings.Join(vs, "\xff")]
+	}
+	v.mu.Unlock()
+	order := make([]int, len(values))
+	for i := range order {
+		order[i] = i
+	}
+	byName := make([]int, len(names))
+	for i := range byName {
+		byName[i] = i
+	}
+	slices.SortFunc(byName, func(x, y int) int { return strings.Compare(names[x], names[y]) })
+	slices.SortFunc(order, func(x, y int) int {
+		for _, l := range byName {
+			if c := strings.Compare(values[x][l], values[y][l]); c != 0 {
+				return c
+			}
+		}
+		return 0
+	})
+	for _, i := range order {
+		fn(values[i], children[i])
+	}
+}
+
+// Counter is a value that only goes up.
+type Counter struct{ v atomicFloat }
+
+// Inc adds 1.
+func (c *Counter) Inc() { c.v.add(1) }
+
+// Add adds d (≥ 0).
+func (c *Counter) Add(d float64) { c.v.add(d) }
+
+// CounterVec is a counter family with labels.
+type CounterVec struct {
+	desc
+	vec[Counter]
+}
+
+// NewCounterVec makes a labelled counter family.
+func NewCounterVec(name, help string, labels ...string) *CounterVec {
+	return &CounterVec{desc: desc{n: name, help: help, typ: "counter", labels: labels},
+		vec: vec[Counter]{make: func() *Counter { return &Counter{} }}}
+}
+
+// WithLabelValues returns the counter of these label values (in the order
+// of the family's labels), made at 0 the first time.
+func (c *CounterVec) WithLabelValues(values ...string) *Counter {
+	return c.with(len(c.labels), values)
+}
+
+func (c *CounterVec) write(b []byte) []byte {
+	b = c.header(b)
+	c.each(c.labels, func(values []string, x *Counter) { b = c.series(b, "", values, "", "", x.v.load()) })
+	return b
+}
+
+// counterFamily is a counter without labels.
+type counterFamily struct {
+	desc
+	Counter
+}
+
+func newCounter(name, help string) *counterFamily {
+	return &counterFamily{desc: desc{n: name, help: help, typ: "counter"}}
+}
+
+func (c *counterFamily) write(b []byte) []byte {
+	return c.series(c.header(b), "", nil, "", "", c.v.load())
+}
+
+// Gauge is a value that goes up and down.
+type Gauge struct {
+	desc
+	v atomicFloat
+}
+
+func newGauge(name, help string) *Gauge {
+	return &Gauge{desc: desc{n: name, help: help, typ: "gauge"}}
+}
+
+// Set sets the value.
+func (g *Gauge) Set(v float64) { g.v.store(v) }
+
+func (g *Gauge) write(b []byte) []byte {
+	return g.series(g.header(b), "", nil, "", "", g.v.load())
+}
+
+// histogram counts observations into cumulative buckets (upper bounds,
+// increasing; +Inf is added) and keeps their sum.
+type histogram struct {
+	bounds []float64
+	counts []atomic.Uint64 // per bucket, not cumulative; the last is +Inf
+	sum    atomicFloat
+	count  atomic.Uint64
+}
+
+func newHistogramValues(bounds []float64) *histogram {
+	return &histogram{bounds: bounds, counts: make([]atomic.Uint64, len(bounds)+1)}
+}
+
+// Observe records v.
+func (h *histogram) Observe(v float64) {
+	i, _ := slices.BinarySearch(h.bounds, v) // the first bound ≥ v: le is inclusive
+	h.counts[i].Add(1)
+	h.sum.add(v)
+	h.count.Add(1)
+}
+
+func (h *histogram) write(b []byte, d *desc, values []string) []byte {
+	var cum uint64
+	for i := range h.counts {
+		cum += h.counts[i].Load()
+		le := math.Inf(1)
+		if i < len(h.bounds) {
+			le = h.bounds[i]
+		}
+		b = d.series(b, "_bucket", values, "le", string(appendValue(nil, le)), float64(cum))
+	}
+	b = d.series(b, "_sum", values, "", "", h.sum.load())
+	return d.series(b, "_count", values, "", "", float64(h.count.Load()))
+}
+
+// Histogram is a histogram without labels.
+type Histogram struct {
+	desc
+	*histogram
+}
+
+func newHistogram(name, help string, bounds []float64) *Histogram {
+	return &Histogram{desc{n: name, help: help, typ: "histogram"}, newHistogramValues(bounds)}
+}
+
+func (h *Histogram) write(b []byte) []byte { return h.histogram.write(h.header(b), &h.desc, nil) }
+
+// HistogramVec is a histogram family with labels.
+type HistogramVec struct {
+	desc
+	vec[histogram]
+}
+
+func newHistogramVec(name, help string, bounds []float64, labels ...string) *HistogramVec {
+	return &HistogramVec{desc: desc{n: name, help: help, typ: "histogram", labels: labels},
+		vec: vec[histogram]{make: func() *histogram { return newHistogramValues(bounds) }}}
+}
+
+// WithLabelValues returns the histogram of these label values.
+func (h *HistogramVec) WithLabelValues(values ...string) *histogram {
+	return h.with(len(h.labels), values)
+}
+
+func (h *HistogramVec) write(b []byte) []byte {
+	b = h.header(b)
+	h.each(h.labels, func(values []string, x *histogram) { b = x.write(b, &h.desc, values) })
+	return b
+}
+
+// gaugeFunc is a gauge or counter read when the metrics are written.
+type gaugeFunc struct {
+	desc
+	read func() (float64, bool) // false: leave the metric out this time
+}
+
+func (g *gaugeFunc) write(b []byte) []byte {
+	v, ok := g.read()
+	if !ok {
+		return b
+	}
+	return g.series(g.header(b), "", nil, "", "", v)
+}
+
+// infoFamily is a constant 1 with labels (go_info, heliocal_build_info).
+type infoFamily struct {
+	desc
+	values []string
+}
+
+func (f *infoFamily) write(b []byte) []byte {
+	return f.series(f.header(b), "", f.values, "", "", 1)
+}
+
+// gcSummary is go_gc_duration_seconds: the quantiles of the recent garbage
+// collections' stop-the-world pauses, with their sum and count.
+type gcSummary struct{ desc }
+
+func (s *gcSummary) write(b []byte) []byte {
+	var st debug.GCStats
+	st.PauseQuantiles = make([]time.Duration, 5)
+	debug.ReadGCStats(&st)
+	b = s.header(b)
+	for i, q := range []string{"0", "0.25", "0.5", "0.75", "1"} {
+		b = s.series(b, "", nil, "quantile", q, st.PauseQuantiles[i].Seconds())
+	}
+	b = s.series(b, "_sum", nil, "", "", st.PauseTotal.Seconds())
+	return s.series(b, "_count", nil, "", "", float64(st.NumGC))
+}
+
+// registerRuntime adds the process's and the Go runtime's metrics, under
+// the names Prometheus's own Go and process collectors use, so that the
+// usual dashboards and alerts find them: process_cpu_seconds_total,
+// process_resident_memory_bytes, process_virtual_memory_bytes,
+// process_open_fds, process_max_fds, process_start_time_seconds (Linux's
+// /proc; left out where it is missing), go_goroutines, go_threads,
+// go_info, go_gc_duration_seconds, go_memstats_alloc_bytes,
+// go_memstats_alloc_bytes_total, go_memstats_sys_bytes,
+// go_memstats_heap_alloc_bytes, go_memstats_heap_inuse_bytes,
+// go_memstats_heap_objects, go_memstats_next_gc_bytes,
+// go_memstats_mallocs_total, go_memstats_frees_total,
+// go_memstats_last_gc_time_seconds and the rest of the runtime's memory
+// statistics, go_sched_gomaxprocs_threads, go_gc_gogc_percent,
+// go_gc_gomemlimit_bytes, process_virtual_memory_max_bytes and
+// process_network_{receive,transmit}_bytes_total: every name the client
+// library's default collectors gave.
+func registerRuntime(r *Registry) error {
+	var ms struct {
+		sync.Mutex
+		at time.Time
+		runtime.MemStats
+	}
+	// memstats reads the runtime's statistics at most once per 100 ms: a
+	// scrape asks for several of them at once
+	memstats := func(f func(*runtime.MemStats) float64) func() (float64, bool) {
+		return func() (float64, bool) {
+			ms.Lock()
+			defer ms.Unlock()
+			if time.Since(ms.at) > 100*time.Millisecond {
+				runtime.ReadMemStats(&ms.MemStats)
+				ms.at = time.Now()
+			}
+			return f(&ms.MemStats), true
+		}
+	}
+	fs := []family{
+		&gaugeFunc{desc{n: "process_cpu_seconds_total", help: "Total user and system CPU time spent in seconds.", typ: "counter"}, func() (float64, bool) {
+			var ru syscall.Rusage
+			if syscall.Getrusage(syscall.RUSAGE_SELF, &ru) != nil {
+				return 0, false
+			}
+			return float64(ru.Utime.Nano()+ru.Stime.Nano()) / 1e9, true
+		}},
+		&gaugeFunc{desc{n: "process_resident_memory_bytes", help: "Resident memory size in bytes.", typ: "gauge"}, func() (float64, bool) { return statm(1) }},
+		&gaugeFunc{desc{n: "process_virtual_memory_bytes", help: "Virtual memory size in bytes.", typ: "gauge"}, func() (float64, bool) { return statm(0) }},
+		&gaugeFunc{desc{n: "process_open_fds", help: "Number of open file descriptors.", typ: "gauge"}, func() (float64, bool) {
+			ents, err := os.ReadDir("/proc/self/fd")
+			return float64(len(ents)), err == nil
+		}},
+		&gaugeFunc{desc{n: "process_max_fds", help: "Maximum number of open file descriptors.", typ: "gauge"}, func() (float64, bool) {
+			var rl syscall.Rlimit
+			if syscall.Getrlimit(syscall.RLIMIT_NOFILE, &rl) != nil {
+				return 0, false
+			}
+			return float64(rl.Cur), true
+		}},
+		&gaugeFunc{desc{n: "process_start_time_seconds", help: "Start time of the process since unix epoch in seconds.", typ: "gauge"}, processStart},
+		&gaugeFunc{desc{n: "go_goroutines", help: "Number of goroutines that currently exist.", typ: "gauge"}, func() (float64, bool) {
+			return float64(runtime.NumGoroutine()), true
+		}},
+		&gaugeFunc{desc{n: "go_threads", help: "Number of OS threads created.", typ: "gauge"}, func() (float64, bool) {
+			n, _ := runtime.ThreadCreateProfile(nil)
+			return float64(n), true
+		}},
+		&infoFamily{desc{n: "go_info", help: "Information about the Go environment.", typ: "gauge", labels: []string{"version"}}, []string{runtime.Version()}},
+		&gcSummary{desc{n: "go_gc_duration_seconds", help: "A summary of the pause duration of garbage collection cycles.", typ: "summary"}},
+		&gaugeFunc{desc{n: "go_memstats_alloc_bytes", help: "Number of bytes allocated and still in use.", typ: "gauge"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.Alloc) })},
+		&gaugeFunc{desc{n: "go_memstats_alloc_bytes_total", help: "Total number of bytes allocated, even if freed.", typ: "counter"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.TotalAlloc) })},
+		&gaugeFunc{desc{n: "go_memstats_sys_bytes", help: "Number of bytes obtained from system.", typ: "gauge"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.Sys) })},
+		&gaugeFunc{desc{n: "go_memstats_heap_alloc_bytes", help: "Number of heap bytes allocated and still in use.", typ: "gauge"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.HeapAlloc) })},
+		&gaugeFunc{desc{n: "go_memstats_heap_inuse_bytes", help: "Number of heap bytes that are in use.", typ: "gauge"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.HeapInuse) })},
+		&gaugeFunc{desc{n: "go_memstats_heap_objects", help: "Number of allocated objects.", typ: "gauge"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.HeapObjects) })},
+		&gaugeFunc{desc{n: "go_memstats_next_gc_bytes", help: "Number of heap bytes when next garbage collection will take place.", typ: "gauge"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.NextGC) })},
+		&gaugeFunc{desc{n: "go_memstats_mallocs_total", help: "Total number of mallocs.", typ: "counter"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.Mallocs) })},
+		&gaugeFunc{desc{n: "go_memstats_frees_total", help: "Total number of frees.", typ: "counter"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.Frees) })},
+		&gaugeFunc{desc{n: "go_memstats_last_gc_time_seconds", help: "Number of seconds since 1970 of last garbage collection.", typ: "gauge"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.LastGC) / 1e9 })},
+		&gaugeFunc{desc{n: "go_memstats_buck_hash_sys_bytes", help: "Number of bytes used by the profiling bucket hash table.", typ: "gauge"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.BuckHashSys) })},
+		&gaugeFunc{desc{n: "go_memstats_gc_sys_bytes", help: "Number of bytes used for garbage collection system metadata.", typ: "gauge"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.GCSys) })},
+		&gaugeFunc{desc{n: "go_memstats_heap_idle_bytes", help: "Number of heap bytes waiting to be used.", typ: "gauge"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.HeapIdle) })},
+		&gaugeFunc{desc{n: "go_memstats_heap_released_bytes", help: "Number of heap bytes released to OS.", typ: "gauge"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.HeapReleased) })},
+		&gaugeFunc{desc{n: "go_memstats_heap_sys_bytes", help: "Number of heap bytes obtained from system.", typ: "gauge"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.HeapSys) })},
+		&gaugeFunc{desc{n: "go_memstats_mcache_inuse_bytes", help: "Number of bytes in use by mcache structures.", typ: "gauge"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.MCacheInuse) })},
+		&gaugeFunc{desc{n: "go_memstats_mcache_sys_bytes", help: "Number of bytes used for mcache structures obtained from system.", typ: "gauge"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.MCacheSys) })},
+		&gaugeFunc{desc{n: "go_memstats_mspan_inuse_bytes", help: "Number of bytes in use by mspan structures.", typ: "gauge"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.MSpanInuse) })},
+		&gaugeFunc{desc{n: "go_memstats_mspan_sys_bytes", help: "Number of bytes used for mspan structures obtained from system.", typ: "gauge"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.MSpanSys) })},
+		&gaugeFunc{desc{n: "go_memstats_other_sys_bytes", help: "Number of bytes used for other system allocations.", typ: "gauge"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.OtherSys) })},
+		&gaugeFunc{desc{n: "go_memstats_stack_inuse_bytes", help: "Number of bytes in use by the stack allocator.", typ: "gauge"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.StackInuse) })},
+		&gaugeFunc{desc{n: "go_memstats_stack_sys_bytes", help: "Number of bytes obtained from system for stack allocator.", typ: "gauge"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.StackSys) })},
+		&gaugeFunc{desc{n: "go_sched_gomaxprocs_threads", help: "The current runtime.GOMAXPROCS setting.", typ: "gauge"}, func() (float64, bool) {
+			return float64(runtime.GOMAXPROCS(0)), true
+		}},
+		&gaugeFunc{desc{n: "go_gc_gogc_percent", help: "Heap size target percentage configured by the user, otherwise 100 (GOGC, debug.SetGCPercent).", typ: "gauge"}, func() (float64, bool) {
+			s := []rtmetrics.Sample{{Name: "/gc/gogc:percent"}}
+			rtmetrics.Read(s)
+			return float64(s[0].Value.Uint64()), s[0].Value.Kind() == rtmetrics.KindUint64
+		}},
+		&gaugeFunc{desc{n: "go_gc_gomemlimit_bytes", help: "Go runtime memory limit configured by the user, otherwise math.MaxInt64 (GOMEMLIMIT, debug.SetMemoryLimit).", typ: "gauge"}, func() (float64, bool) {
+			return float64(debug.SetMemoryLimit(-1)), true // a negative limit only reads it
+		}},
+		&gaugeFunc{desc{n: "process_virtual_memory_max_bytes", help: "Maximum amount of virtual memory available in bytes.", typ: "gauge"}, func() (float64, bool) {
+			var rl syscall.Rlimit
+			if syscall.Getrlimit(syscall.RLIMIT_AS, &rl) != nil {
+				return 0, false
+			}
+			return float64(rl.Cur), true
+		}},
+		&gaugeFunc{desc{n: "process_network_receive_bytes_total", help: "Number of bytes received by the process over the network.", typ: "counter"}, func() (float64, bool) { return netDev(0) }},
+		&gaugeFunc{desc{n: "process_network_transmit_bytes_total", help: "Number of bytes sent by the process over the network.", typ: "counter"}, func() (float64, bool) { return netDev(8) }},
+	}
+	for _, f := range fs {
+		if err := r.register(f); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// statm returns field i of /proc/self/statm (pages) in bytes.
+func statm(i int) (float64, bool) {
+	data, err := os.ReadFile("/proc/self/statm")
+	if err != nil {
+		return 0, false
+	}
+	f := strings.Fields(string(data))
+	if i >= len(f) {
+		return 0, false
+	}
+	n, err := strconv.ParseUint(f[i], 10, 64)
+	return float64(n) * float64(os.Getpagesize()), err == nil
+}
+
+// netDev returns the sum over the interfaces of column col (0: bytes
+// received, 8: bytes sent) of /proc/self/net/dev: the traffic of the
+// process's network namespace.
+func netDev(col int) (float64, bool) {
+	data, err := os.ReadFile("/proc/self/net/dev")
+	if err != nil {
+		return 0, false
+	}
+	var sum float64
+	for line := range strings.Lines(string(data)) {
+		_, counts, ok := strings.Cut(line, ":")
+		if !ok {
+			continue // the two header lines
+		}
+		f := strings.Fields(counts)
+		if col >= len(f) {
+			return 0, false
+		}
+		n, err := strconv.ParseUint(f[col], 10, 64)
+		if err != nil {
+			return 0, false
+		}
+		sum += float64(n)
+	}
+	return sum, true
+}
+
+// userHZ is the unit of /proc's clock-tick fields: 100 on every Linux
+// architecture Go runs on (sysconf(_SC_CLK_TCK)).
+const userHZ = 100
+
+// processStart reads the process's start from /proc/self/stat (field 22,
+// clock ticks after boot) and the boot time from /proc/stat (btime).
+func processStart() (float64, bool) {
+	stat, err := os.ReadFile("/proc/self/stat")
+	if err != nil {
+		return 0, false
+	}
+	// the command name (field 2) is in parentheses and may hold spaces
+	i := bytes.LastIndexByte(stat, ')')
+	if i < 0 {
+		return 0, false
+	}
+	f := strings.Fields(string(stat[i+1:])) // fields 3 onwards
+	if len(f) < 20 {
+		return 0, false
+	}
+	ticks, err := strconv.ParseUint(f[19], 10, 64) // field 22
+	if err != nil {
+		return 0, false
+	}
+	sys, err := os.ReadFile("/proc/stat")
+	if err != nil {
+		return 0, false
+	}
+	for line := range strings.Lines(string(sys)) {
+		if v, ok := strings.CutPrefix(line, "btime "); ok {
+			boot, err := strconv.ParseUint(strings.TrimSpace(v), 10, 64)
+			if err != nil {
+				return 0, false
+			}
+			return float64(boot) + float64(ticks)/userHZ, true
+		}
+	}
+	return 0, false
+}
+
+// errNoRegistry is returned for a registry made without NewRegistry.
+var errNoRegistry = errors.New("serve: Options.Metrics was not made by NewRegistry")

@@ -1,0 +1,163 @@
+package serve
+
+import (
+	"errors"
+	"math"
+	"os"
+	"os/exec"
+	"regexp"
+	"strings"
+	"testing"
+
+	dto "github.com/prometheus/client_model/go"
+	"github.com/prometheus/common/expfmt"
+	"github.com/prometheus/common/model"
+)
+
+// /metrics is read back by Prometheus's own parser of the text format
+// (github.com/prometheus/common/expfmt, in the tests only): every metric
+// docs/serving.md names is there with its type and labels, the histograms'
+// buckets are cumulative and end at +Inf with the count, and the process's
+// and the Go runtime's metrics that dashboards and alerts use are there
+// with plausible values.
+func TestMetricsExposition(t *testing.T) {
+	reg, err := registry(nil) // as New makes it: with the process's and the runtime's metrics
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, b := newTestServer(t, Options{Adhoc: adhocICS, Metrics: reg, Version: "1.2.3", Revision: "abc"})
+	h := s.Handler()
+	get(t, h, "GET", "/feeds/meadowbrook-sun.ics")
+	get(t, h, "GET", "/at.ics?lat=45&lon=0&tz=UTC&kinds=sunrise")
+	b.set(nil, errors.New("boom"))
+	s.Refresh(t.Context())
+	resp := get(t, h, "GET", "/metrics")
+	if ct := resp.Header.Get("Content-Type"); !strings.HasPrefix(ct, "text/plain; version=0.0.4") {
+		t.Errorf("Content-Type %q", ct)
+	}
+	text := body(t, resp)
+	parser := expfmt.NewTextParser(model.UTF8Validation)
+	fams, err := parser.TextToMetricFamilies(strings.NewReader(text))
+	if err != nil {
+		t.Fatalf("the text format does not parse: %v\n%s", err, text)
+	}
+	want := map[string]dto.MetricType{
+		"heliocal_reloads_refused_total":                  dto.MetricType_COUNTER,
+		"heliocal_http_requests_total":                    dto.MetricType_COUNTER,
+		"heliocal_http_request_duration_seconds":          dto.MetricType_HISTOGRAM,
+		"heliocal_refresh_duration_seconds":               dto.MetricType_HISTOGRAM,
+		"heliocal_refreshes_total":                        dto.MetricType_COUNTER,
+		"heliocal_refresh_last_success_timestamp_seconds": dto.MetricType_GAUGE,
+		"heliocal_refresh_last_successful":                dto.MetricType_GAUGE,
+		"heliocal_feeds":                                  dto.MetricType_GAUGE,
+		"heliocal_events":                                 dto.MetricType_GAUGE,
+		"heliocal_build_info":                             dto.MetricType_GAUGE,
+		"heliocal_adhoc_cache_total":                      dto.MetricType_COUNTER,
+		"heliocal_adhoc_build_duration_seconds":           dto.MetricType_HISTOGRAM,
+		"process_cpu_seconds_total":                       dto.MetricType_COUNTER,
+		"process_resident_memory_bytes":                   dto.MetricType_GAUGE,
+		"process_virtual_memory_bytes":                    dto.MetricType_GAUGE,
+		"process_open_fds":                                dto.MetricType_GAUGE,
+		"process_max_fds":                                 dto.MetricType_GAUGE,
+		"process_start_time_seconds":                      dto.MetricType_GAUGE,
+		"go_goroutines":                                   dto.MetricType_GAUGE,
+		"go_threads":                                      dto.MetricType_GAUGE,
+		"go_info":                                         dto.MetricType_GAUGE,
+		"go_gc_duration_seconds":                          dto.MetricType_SUMMARY,
+		"go_memstats_alloc_bytes":                         dto.MetricType_GAUGE,
+		"go_memstats_heap_inuse_bytes":                    dto.MetricType_GAUGE,
+		"go_memstats_sys_bytes":                           dto.MetricType_GAUGE,
+	}
+	for name, typ := range want {
+		f, ok := fams[name]
+		if !ok {
+			t.Errorf("/metrics lacks %s", name)
+			continue
+		}
+		if f.GetType() != typ {
+			t.Errorf("%s: type %v, want %v", name, f.GetType(), typ)
+		}
+	}
+	// every metric docs/serving.md names is served
+	doc, err := os.ReadFile("../../docs/serving.md")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, name := range regexp.MustCompile("`(heliocal_[a-z_]+)").FindAllStringSubmatch(string(doc), -1) {
+		if _, ok := fams[name[1]]; !ok && name[1] != "heliocal_serve" {
+			t.Errorf("docs/serving.md names %s, which /metrics does not serve", name[1])
+		}
+	}
+	labels := func(m *dto.Metric) map[string]string {
+		l := map[string]string{}
+		for _, p := range m.GetLabel() {
+			l[p.GetName()] = p.GetValue()
+		}
+		return l
+	}
+	found := false
+	for _, m := range fams["heliocal_http_requests_total"].GetMetric() {
+		if l := labels(m); l["route"] == "feed" && l["code"] == "200" {
+			found = m.GetCounter().GetValue() == 1
+		}
+	}
+	if !found {
+		t.Error(`heliocal_http_requests_total{route="feed",code="200"} is not 1`)
+	}
+	if l := labels(fams["heliocal_build_info"].GetMetric()[0]); l["version"] != "1.2.3" || l["revision"] != "abc" || !strings.HasPrefix(l["goversion"], "go") {
+		t.Errorf("heliocal_build_info labels %v", l)
+	}
+	for name, f := range fams {
+		if f.GetType() != dto.MetricType_HISTOGRAM {
+			continue
+		}
+		for _, m := range f.GetMetric() {
+			h := m.GetHistogram()
+			var last uint64
+			for _, bk := range h.GetBucket() {
+				if bk.GetCumulativeCount() < last {
+					t.Errorf("%s %v: buckets not cumulative", name, labels(m))
+				}
+				last = bk.GetCumulativeCount()
+			}
+			// the parser keeps +Inf's count as the sample count
+			if last > h.GetSampleCount() {
+				t.Errorf("%s %v: buckets count %d, more than the count %d", name, labels(m), last, h.GetSampleCount())
+			}
+		}
+	}
+	// the first build and the failed refresh
+	if got := fams["heliocal_refresh_duration_seconds"].GetMetric()[0].GetHistogram().GetSampleCount(); got != 2 {
+		t.Errorf("heliocal_refresh_duration_seconds_count %d, want 2", got)
+	}
+	if !strings.Contains(text, `heliocal_refresh_duration_seconds_bucket{le="+Inf"} 2`+"\n") {
+		t.Error("no +Inf bucket holding both rebuilds")
+	}
+	if v := fams["process_resident_memory_bytes"].GetMetric()[0].GetGauge().GetValue(); !(v > 1<<20) {
+		t.Errorf("process_resident_memory_bytes %v", v)
+	}
+	if v := fams["process_start_time_seconds"].GetMetric()[0].GetGauge().GetValue(); !(v > 1.7e9 && v < 4e9) {
+		t.Errorf("process_start_time_seconds %v", v)
+	}
+	if v := fams["go_goroutines"].GetMetric()[0].GetGauge().GetValue(); !(v >= 1) || math.IsInf(v, 0) {
+		t.Errorf("go_goroutines %v", v)
+	}
+}
+
+// The server does not link the Prometheus client library: its package
+// initialisation would run in every command of the program.
+func TestNoPrometheusClient(t *testing.T) {
+	goTool, err := exec.LookPath("go")
+	if err != nil {
+		t.Skip("go tool not found")
+	}
+	out, err := exec.Command(goTool, "list", "-deps", "../../cmd/heliocal").CombinedOutput()
+	if err != nil {
+		t.Fatalf("go list: %v\n%s", err, out)
+	}
+	for _, p := range strings.Fields(string(out)) {
+		if strings.HasPrefix(p, "github.com/prometheus/") {
+			t.Errorf("cmd/heliocal depends on %s", p)
+		}
+	}
+}

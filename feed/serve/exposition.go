@@ -243,43 +243,40 @@ func (v *vec[T]) each(names []string, fn func(values []string, c *T)) {
 	}
 }
 
-// Counter is a value that only goes up.
-type Counter struct{ v atomicFloat }
+// counter is a value that only goes up.
+type counter struct{ v atomicFloat }
 
 // Inc adds 1.
-func (c *Counter) Inc() { c.v.add(1) }
+func (c *counter) Inc() { c.v.add(1) }
 
-// Add adds d (≥ 0).
-func (c *Counter) Add(d float64) { c.v.add(d) }
-
-// CounterVec is a counter family with labels.
-type CounterVec struct {
+// counterVec is a counter family with labels.
+type counterVec struct {
 	desc
-	vec[Counter]
+	vec[counter]
 }
 
-// NewCounterVec makes a labelled counter family.
-func NewCounterVec(name, help string, labels ...string) *CounterVec {
-	return &CounterVec{desc: desc{n: name, help: help, typ: "counter", labels: labels},
-		vec: vec[Counter]{make: func() *Counter { return &Counter{} }}}
+// newCounterVec makes a labelled counter family.
+func newCounterVec(name, help string, labels ...string) *counterVec {
+	return &counterVec{desc: desc{n: name, help: help, typ: "counter", labels: labels},
+		vec: vec[counter]{make: func() *counter { return &counter{} }}}
 }
 
 // WithLabelValues returns the counter of these label values (in the order
 // of the family's labels), made at 0 the first time.
-func (c *CounterVec) WithLabelValues(values ...string) *Counter {
+func (c *counterVec) WithLabelValues(values ...string) *counter {
 	return c.with(len(c.labels), values)
 }
 
-func (c *CounterVec) write(b []byte) []byte {
+func (c *counterVec) write(b []byte) []byte {
 	b = c.header(b)
-	c.each(c.labels, func(values []string, x *Counter) { b = c.series(b, "", values, "", "", x.v.load()) })
+	c.each(c.labels, func(values []string, x *counter) { b = c.series(b, "", values, "", "", x.v.load()) })
 	return b
 }
 
 // counterFamily is a counter without labels.
 type counterFamily struct {
 	desc
-	Counter
+	counter
 }
 
 func newCounter(name, help string) *counterFamily {
@@ -290,20 +287,20 @@ func (c *counterFamily) write(b []byte) []byte {
 	return c.series(c.header(b), "", nil, "", "", c.v.load())
 }
 
-// Gauge is a value that goes up and down.
-type Gauge struct {
+// gauge is a value that goes up and down.
+type gauge struct {
 	desc
 	v atomicFloat
 }
 
-func newGauge(name, help string) *Gauge {
-	return &Gauge{desc: desc{n: name, help: help, typ: "gauge"}}
+func newGauge(name, help string) *gauge {
+	return &gauge{desc: desc{n: name, help: help, typ: "gauge"}}
 }
 
 // Set sets the value.
-func (g *Gauge) Set(v float64) { g.v.store(v) }
+func (g *gauge) Set(v float64) { g.v.store(v) }
 
-func (g *Gauge) write(b []byte) []byte {
+func (g *gauge) write(b []byte) []byte {
 	return g.series(g.header(b), "", nil, "", "", g.v.load())
 }
 
@@ -342,35 +339,35 @@ func (h *histogram) write(b []byte, d *desc, values []string) []byte {
 	return d.series(b, "_count", values, "", "", float64(h.count.Load()))
 }
 
-// Histogram is a histogram without labels.
-type Histogram struct {
+// histogramFamily is a histogram without labels.
+type histogramFamily struct {
 	desc
 	*histogram
 }
 
-func newHistogram(name, help string, bounds []float64) *Histogram {
-	return &Histogram{desc{n: name, help: help, typ: "histogram"}, newHistogramValues(bounds)}
+func newHistogram(name, help string, bounds []float64) *histogramFamily {
+	return &histogramFamily{desc{n: name, help: help, typ: "histogram"}, newHistogramValues(bounds)}
 }
 
-func (h *Histogram) write(b []byte) []byte { return h.histogram.write(h.header(b), &h.desc, nil) }
+func (h *histogramFamily) write(b []byte) []byte { return h.histogram.write(h.header(b), &h.desc, nil) }
 
-// HistogramVec is a histogram family with labels.
-type HistogramVec struct {
+// histogramVec is a histogram family with labels.
+type histogramVec struct {
 	desc
 	vec[histogram]
 }
 
-func newHistogramVec(name, help string, bounds []float64, labels ...string) *HistogramVec {
-	return &HistogramVec{desc: desc{n: name, help: help, typ: "histogram", labels: labels},
+func newHistogramVec(name, help string, bounds []float64, labels ...string) *histogramVec {
+	return &histogramVec{desc: desc{n: name, help: help, typ: "histogram", labels: labels},
 		vec: vec[histogram]{make: func() *histogram { return newHistogramValues(bounds) }}}
 }
 
 // WithLabelValues returns the histogram of these label values.
-func (h *HistogramVec) WithLabelValues(values ...string) *histogram {
+func (h *histogramVec) WithLabelValues(values ...string) *histogram {
 	return h.with(len(h.labels), values)
 }
 
-func (h *HistogramVec) write(b []byte) []byte {
+func (h *histogramVec) write(b []byte) []byte {
 	b = h.header(b)
 	h.each(h.labels, func(values []string, x *histogram) { b = x.write(b, &h.desc, values) })
 	return b

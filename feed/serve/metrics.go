@@ -32,20 +32,20 @@ const (
 )
 
 type metrics struct {
-	requests       *CounterVec
-	requestSeconds *HistogramVec
-	refreshSeconds *Histogram
-	refreshes      *CounterVec
-	lastSuccess    *Gauge
-	lastOK         *Gauge
-	feeds          *Gauge
-	events         *Gauge
-	adhocCache     *CounterVec
-	adhocSeconds   *Histogram
+	requests       *counterVec
+	requestSeconds *histogramVec
+	refreshSeconds *histogramFamily
+	refreshes      *counterVec
+	lastSuccess    *gauge
+	lastOK         *gauge
+	feeds          *gauge
+	events         *gauge
+	adhocCache     *counterVec
+	adhocSeconds   *histogramFamily
 	reloadsRefused *counterFamily
 
 	// Pre-resolved children for the hot path: route × common status.
-	hot      map[string]map[int]*Counter
+	hot      map[string]map[int]*counter
 	duration map[string]*histogram
 }
 
@@ -62,7 +62,7 @@ func exponentialBuckets(start, factor float64, n int) []float64 {
 
 func newMetrics(reg *Registry) (*metrics, error) {
 	m := &metrics{
-		requests: NewCounterVec("heliocal_http_requests_total",
+		requests: newCounterVec("heliocal_http_requests_total",
 			"HTTP requests served, by route and status code.", "route", "code"),
 		requestSeconds: newHistogramVec("heliocal_http_request_duration_seconds",
 			"Time to serve an HTTP request, by route.",
@@ -70,7 +70,7 @@ func newMetrics(reg *Registry) (*metrics, error) {
 		refreshSeconds: newHistogram("heliocal_refresh_duration_seconds",
 			"Time to rebuild every feed, successful or not.",
 			exponentialBuckets(0.05, 2, 12)), // 50 ms .. 102 s
-		refreshes: NewCounterVec("heliocal_refreshes_total",
+		refreshes: newCounterVec("heliocal_refreshes_total",
 			"Feed rebuilds, by trigger (initial, schedule, reload, manual) and result (success, failure).", "trigger", "result"),
 		lastSuccess: newGauge("heliocal_refresh_last_success_timestamp_seconds",
 			"Unix time of the last successful rebuild (0 if none yet)."),
@@ -78,7 +78,7 @@ func newMetrics(reg *Registry) (*metrics, error) {
 			"1 if the latest rebuild succeeded, 0 if it failed and older feeds are being served."),
 		feeds:  newGauge("heliocal_feeds", "Feeds currently served."),
 		events: newGauge("heliocal_events", "Events in the feeds currently served."),
-		adhocCache: NewCounterVec("heliocal_adhoc_cache_total",
+		adhocCache: newCounterVec("heliocal_adhoc_cache_total",
 			"Ad-hoc feed requests by cache result (hit, miss).", "result"),
 		adhocSeconds: newHistogram("heliocal_adhoc_build_duration_seconds",
 			"Time to build (and compress) one ad-hoc feed.",
@@ -92,10 +92,10 @@ func newMetrics(reg *Registry) (*metrics, error) {
 			return nil, fmt.Errorf("serve: registering metrics: %w", err)
 		}
 	}
-	m.hot = make(map[string]map[int]*Counter, len(routes))
+	m.hot = make(map[string]map[int]*counter, len(routes))
 	m.duration = make(map[string]*histogram, len(routes))
 	for _, r := range routes {
-		m.hot[r] = make(map[int]*Counter)
+		m.hot[r] = make(map[int]*counter)
 		for _, code := range []int{200, 206, 304, 400, 404, 405, 412, 416, 500, 503} {
 			m.hot[r][code] = m.requests.WithLabelValues(r, strconv.Itoa(code))
 		}

@@ -305,12 +305,13 @@ func (g *gauge) write(b []byte) []byte {
 }
 
 // histogram counts observations into cumulative buckets (upper bounds,
-// increasing; +Inf is added) and keeps their sum.
+// increasing; +Inf is added) and keeps their sum. Its count is the +Inf
+// bucket's, as the text format wants them equal: a count of its own, read
+// apart from the buckets, could be ahead of them while observations come in.
 type histogram struct {
 	bounds []float64
 	counts []atomic.Uint64 // per bucket, not cumulative; the last is +Inf
 	sum    atomicFloat
-	count  atomic.Uint64
 }
 
 func newHistogramValues(bounds []float64) *histogram {
@@ -322,7 +323,6 @@ func (h *histogram) Observe(v float64) {
 	i, _ := slices.BinarySearch(h.bounds, v) // the first bound ≥ v: le is inclusive
 	h.counts[i].Add(1)
 	h.sum.add(v)
-	h.count.Add(1)
 }
 
 func (h *histogram) write(b []byte, d *desc, values []string) []byte {
@@ -336,7 +336,7 @@ func (h *histogram) write(b []byte, d *desc, values []string) []byte {
 		b = d.series(b, "_bucket", values, "le", string(appendValue(nil, le)), float64(cum))
 	}
 	b = d.series(b, "_sum", values, "", "", h.sum.load())
-	return d.series(b, "_count", values, "", "", float64(h.count.Load()))
+	return d.series(b, "_count", values, "", "", float64(cum))
 }
 
 // histogramFamily is a histogram without labels.

@@ -6,8 +6,10 @@ import (
 	"os"
 	"os/exec"
 	"regexp"
+	"strconv"
 	"strings"
 	"testing"
+	"time"
 
 	dto "github.com/prometheus/client_model/go"
 	"github.com/prometheus/common/expfmt"
@@ -160,4 +162,60 @@ func TestNoPrometheusClient(t *testing.T) {
 			t.Errorf("cmd/heliocal depends on %s", p)
 		}
 	}
+}
+
+// While requests are observed, every scrape's histogram has its +Inf
+// bucket equal to its _count (the text format's rule), and neither a count
+// nor a counter goes down from one scrape to the next (run with -race in
+// .ci/run).
+func TestMetricsScrapedWhileObserved(t *testing.T) {
+	reg := NewRegistry()
+	m, err := newMetrics(reg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	stop := make(chan struct{})
+	done := make(chan struct{})
+	for g := range 2 {
+		go func() {
+			defer func() { done <- struct{}{} }()
+			for i := 0; ; i++ {
+				select {
+				case <-stop:
+					return
+				default:
+				}
+				m.request(routeFeed, 200, time.Duration(g*i%50)*time.Millisecond)
+			}
+		}()
+	}
+	inf := regexp.MustCompile(`(?m)^heliocal_http_request_duration_seconds_bucket\{route="feed",le="\+Inf"\} (\S+)$`)
+	count := regexp.MustCompile(`(?m)^heliocal_http_request_duration_seconds_count\{route="feed"\} (\S+)$`)
+	total := regexp.MustCompile(`(?m)^heliocal_http_requests_total\{code="200",route="feed"\} (\S+)$`)
+	var lastCount, lastTotal float64
+	for range 200 {
+		text := string(reg.WriteText(nil))
+		num := func(re *regexp.Regexp) float64 {
+			mm := re.FindStringSubmatch(text)
+			if mm == nil {
+				t.Fatalf("no line matching %s in\n%s", re, text)
+			}
+			n, err := strconv.ParseFloat(mm[1], 64)
+			if err != nil {
+				t.Fatal(err)
+			}
+			return n
+		}
+		c, tot := num(count), num(total)
+		if i := num(inf); i != c {
+			t.Fatalf(`le="+Inf" bucket %v, _count %v`, i, c)
+		}
+		if c < lastCount || tot < lastTotal {
+			t.Fatalf("went down: count %v after %v, total %v after %v", c, lastCount, tot, lastTotal)
+		}
+		lastCount, lastTotal = c, tot
+	}
+	close(stop)
+	<-done
+	<-done
 }

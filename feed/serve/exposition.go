@@ -507,7 +507,10 @@ func registerRuntime(r *Registry) error {
 		&gaugeFunc{desc{n: "go_gc_gogc_percent", help: "Heap size target percentage configured by the user, otherwise 100 (GOGC, debug.SetGCPercent).", typ: "gauge"}, func() (float64, bool) {
 			s := []rtmetrics.Sample{{Name: "/gc/gogc:percent"}}
 			rtmetrics.Read(s)
-			return float64(s[0].Value.Uint64()), s[0].Value.Kind() == rtmetrics.KindUint64
+			if s[0].Value.Kind() != rtmetrics.KindUint64 { // Uint64 would panic
+				return 0, false
+			}
+			return float64(s[0].Value.Uint64()), true
 		}},
 		&gaugeFunc{desc{n: "go_gc_gomemlimit_bytes", help: "Go runtime memory limit configured by the user, otherwise math.MaxInt64 (GOMEMLIMIT, debug.SetMemoryLimit).", typ: "gauge"}, func() (float64, bool) {
 			return float64(debug.SetMemoryLimit(-1)), true // a negative limit only reads it

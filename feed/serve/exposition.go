@@ -188,8 +188,14 @@ func (f *atomicFloat) add(v float64) {
 type vec[T any] struct {
 	mu       sync.Mutex
 	children map[string]*T
-	values   [][]string
+	list     []child[T] // the children with their label values
 	make     func() *T
+}
+
+// child is a child of a vec and its label values.
+type child[T any] struct {
+	values []string
+	c      *T
 }
 
 func (v *vec[T]) with(n int, values []string) *T {
@@ -206,7 +212,7 @@ func (v *vec[T]) with(n int, values []string) *T {
 		}
 		c = v.make()
 		v.children[key] = c
-		v.values = append(v.values, slices.Clone(values))
+		v.list = append(v.list, child[T]{slices.Clone(values), c})
 	}
 	return c
 }
@@ -215,31 +221,23 @@ func (v *vec[T]) with(n int, values []string) *T {
 // by label name (names: the family's labels), as Prometheus writes them.
 func (v *vec[T]) each(names []string, fn func(values []string, c *T)) {
 	v.mu.Lock()
-	values := slices.Clone(v.values)
-	children := make([]*T, len(values))
-	for i, vs := range values {
-		children[i] = v.children[strings.Join(vs, "\xff")]
-	}
+	list := slices.Clone(v.list)
 	v.mu.Unlock()
-	order := make([]int, len(values))
-	for i := range order {
-		order[i] = i
-	}
 	byName := make([]int, len(names))
 	for i := range byName {
 		byName[i] = i
 	}
 	slices.SortFunc(byName, func(x, y int) int { return strings.Compare(names[x], names[y]) })
-	slices.SortFunc(order, func(x, y int) int {
+	slices.SortFunc(list, func(x, y child[T]) int {
 		for _, l := range byName {
-			if c := strings.Compare(values[x][l], values[y][l]); c != 0 {
+			if c := strings.Compare(x.values[l], y.values[l]); c != 0 {
 				return c
 			}
 		}
 		return 0
 	})
-	for _, i := range order {
-		fn(values[i], children[i])
+	for _, e := range list {
+		fn(e.values, e.c)
 	}
 }
 

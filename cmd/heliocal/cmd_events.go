@@ -525,12 +525,6 @@ func stateText(s astro.State) string {
 	return "no event on this date"
 }
 
-// details is detailsAt for a site at sea level, under a flat horizon and
-// standard air.
-func details(e *feed.Event, loc *time.Location) string {
-	return detailsAt(e, loc, astro.Observer{})
-}
-
 // detailsAt is the table's DETAILS of an event at the site of observer o.
 // A band's span is named in the words of the feeds' titles
 // (feed.SpanWords), with the Sun's highest (lowest) altitude when its

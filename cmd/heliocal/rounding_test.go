@@ -7,6 +7,7 @@ import (
 	"testing"
 	"time"
 
+	"heliocal/astro"
 	"heliocal/config"
 	"heliocal/feed"
 	"heliocal/feed/ical"
@@ -133,7 +134,7 @@ func TestTableIlluminationAsFeeds(t *testing.T) {
 		want string
 	}{{0.125, "13 % lit"}, {0.375, "38 % lit"}, {0.22, "22 % lit"}} {
 		e := feed.Event{Kind: k, Start: time.Date(2027, 1, 1, 0, 53, 0, 0, time.UTC), Illuminated: c.lit}
-		if got := details(&e, time.UTC); !strings.HasSuffix(got, c.want) {
+		if got := detailsAt(&e, time.UTC, astro.Observer{}); !strings.HasSuffix(got, c.want) {
 			t.Errorf("illuminated %v: %q, want it to end %q", c.lit, got, c.want)
 		}
 	}

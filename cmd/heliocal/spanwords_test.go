@@ -13,7 +13,8 @@ import (
 // November 2026) is twilight glow in both. The same query's iCalendar
 // (--format ics) has the feed's titles. The spans are those of the feed
 // package's TestMergedBandSpans (PyEphem 4.1: lower transit 2026-04-09
-// 22:59 UT at −3.9481°, upper transit 2026-11-01 10:41 UT at −2.7057°).
+// 22:59 UT at −3.9481°, upper transits 2026-10-20 10:42 UT at +1.3720° and
+// 2026-11-01 10:41 UT at −2.7057°).
 func TestTableSpanWordsAsFeed(t *testing.T) {
 	summary := regexp.MustCompile(`(?m)^SUMMARY:(?:Golden|Blue) hour \(([^)]*)\)`)
 	for _, c := range []struct {

@@ -219,6 +219,32 @@ func TestEventsJSONFormatting(t *testing.T) {
 	}
 }
 
+// appendRounded writes what encoding/json writes for every number of
+// decimals it takes (1–6), at magnitudes from 1e-8 to 1e17 (across 1e15
+// units, where it hands over to appendJSONFloat), for halves, which
+// math.Round takes away from zero, and for zeros of either sign.
+func TestEventsJSONRoundedEdges(t *testing.T) {
+	r := rand.New(rand.NewPCG(56, 78))
+	edges := []float64{0, math.Copysign(0, -1), 0.125, -0.125, 0.5, -0.5, 2.5, -2.5, 0.0025, -0.004,
+		9999999999999.99, 10000000000000, 99999999999.9999, 1e11, -999999999.999999, 1e15, 123456789012345.6}
+	for digits := 1; digits <= 6; digits++ {
+		scale := math.Pow(10, float64(digits))
+		xs := slices.Clone(edges)
+		for e := -8; e <= 17; e++ {
+			for range 200 {
+				xs = append(xs, (r.Float64()-0.5)*math.Pow(10, float64(e)))
+			}
+			xs = append(xs, -(float64(r.Int64N(1_000_000))+0.5)/scale) // a half in the last decimal
+		}
+		for _, x := range xs {
+			want, _ := json.Marshal(math.Round(x*scale) / scale)
+			if got := appendRounded(nil, x, digits); string(got) != string(want) {
+				t.Fatalf("%v to %d decimals: %s, encoding/json %s", x, digits, got, want)
+			}
+		}
+	}
+}
+
 // The CSV rows of the kinds written directly (plainCSVRow) are those of the
 // general path (the event's JSON object, field by field), at a polar site
 // (dates without sunrise, days after midnight) with a clock change, for

@@ -162,6 +162,9 @@ func TestBandAroundTheClock(t *testing.T) {
 		t.Fatalf("%d spans longer than a day, want 1: %+v", len(long), long)
 	}
 	e := long[0]
+	if e.Facts.Altitude != 0 {
+		t.Errorf("a span of days has the altitude %v°: no day's highest is the span's", e.Facts.Altitude)
+	}
 	if d := e.Start.Sub(time.Date(2026, 3, 11, 4, 1, 1, 0, time.UTC)); d < -5*time.Second || d > 5*time.Second {
 		t.Errorf("enters the band at %v, PyEphem 04:01:01 UT on 11 March", e.Start)
 	}

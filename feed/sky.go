@@ -56,11 +56,12 @@ type Event struct {
 }
 
 // MergedSpan reports whether e is a golden or blue hour's (or a sun band's)
-// span in which a morning and an evening meet, part "all-day" (the Sun
-// stays under the band's upper bound) or "night" (over its lower bound):
-// its Altitude is then the Sun's highest or lowest in it.
+// span in which a morning and an evening meet within a day, part "all-day"
+// (the Sun stays under the band's upper bound) or "night" (over its lower
+// bound): its Altitude is then the Sun's highest or lowest in it. A span of
+// days (AroundTheClock) is not one: it has no such altitude.
 func MergedSpan(e Event) bool {
-	return isBand(e.Kind) && (e.Part == "all-day" || e.Part == "night")
+	return isBand(e.Kind) && (e.Part == "all-day" || e.Part == "night") && !AroundTheClock(e)
 }
 
 // AroundTheClock reports whether e is a band's span in which the Sun stays
@@ -1380,9 +1381,12 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 			}
 			if c.inRange(d) {
 				e := Event{Kind: k, Start: start, End: m.t, Date: d, Part: part, Low: low, High: high}
-				if part == "all-day" || part == "night" {
+				if (part == "all-day" || part == "night") && m.t.Sub(start) <= 24*time.Hour {
 					// one span where a morning and an evening meet: its
-					// text gives the Sun's highest (lowest) altitude in it
+					// text gives the Sun's highest (lowest) altitude in it.
+					// Not for a span of days near a pole (AroundTheClock):
+					// the search of one day's extreme would find one of its
+					// days' extremes, not the span's
 					h, err := c.sunExtreme(start, m.t, part == "all-day")
 					if err != nil {
 						return err

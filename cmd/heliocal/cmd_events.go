@@ -541,9 +541,9 @@ func detailsAt(e *feed.Event, loc *time.Location, o astro.Observer) string {
 	switch {
 	case words == "" && e.Part != "":
 		parts = append(parts, e.Part)
-	case feed.MergedSpan(*e) && !feed.AroundTheClock(*e) && e.Part == "night":
+	case feed.MergedSpan(*e) && e.Part == "night":
 		parts = append(parts, fmt.Sprintf("%s, Sun at least %.2f°", words, e.Altitude))
-	case feed.MergedSpan(*e) && !feed.AroundTheClock(*e):
+	case feed.MergedSpan(*e):
 		parts = append(parts, fmt.Sprintf("%s, Sun at most %.2f°", words, e.Altitude))
 	case words != "":
 		parts = append(parts, words)

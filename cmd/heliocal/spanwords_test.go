@@ -56,3 +56,46 @@ func TestTableSpanWordsAsFeed(t *testing.T) {
 		}
 	}
 }
+
+// A band's span of days near a pole ("around the clock") has no single
+// highest or lowest altitude of a day to give: the table and the feed write
+// none, and JSON and CSV must not either. At 77.8° S, 166.7° E the Sun stays
+// between +5° and +40° from 10 November 2026 to 2 February 2027 (local),
+// climbing to 35.63° on 22 December (PyEphem 4.1, Observer −77.8°
+// 166.7°, pressure 0, elevation 0, sampled every 10 min: 35.6337° at
+// 2026-12-22 00:55 UT); a one-day search over the span had written
+// "altitude_deg": 31.8432, neither the highest nor the lowest.
+func TestAroundTheClockHasNoAltitude(t *testing.T) {
+	args := []string{"events", "--lat", "-77.8", "--lon", "166.7", "--tz", "Antarctica/McMurdo",
+		"--from", "2026-11-09", "--to", "2027-02-02", "--kinds", "sun-band:5..40"}
+	code, table, errOut := runCLI(t, args...)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	if !regexp.MustCompile(`(?m)^2026-11-10 Tue  02:24:1\d NZDT  sun-band:5\.\.40  until 01:33:0\d \+84 days \(2015 h 09 min\), around the clock$`).MatchString(table) {
+		t.Errorf("the table lacks the span around the clock:\n%s", table)
+	}
+	code, js, errOut := runCLI(t, append(args, "--format", "json")...)
+	if code != 0 {
+		t.Fatalf("--format json: exit %d: %s", code, errOut)
+	}
+	long := regexp.MustCompile(`"start": "2026-11-09T13:24:1\d\.\d+Z",\s+"end": "2027-02-01T12:33:0\d\.\d+Z",\s+"date": "2026-11-10",\s+"part": "all-day"\s+}`)
+	if !long.MatchString(js) {
+		t.Errorf("JSON: the span around the clock is not as expected (or has an altitude):\n%s", js)
+	}
+	// the day before, morning and evening meet within the day: its highest
+	// altitude stays (PyEphem 4.1 as above: 29.00° on 9 November)
+	if !strings.Contains(js, `"date": "2026-11-09",
+      "part": "all-day",
+      "altitude_deg": 29.00`) {
+		t.Errorf("JSON: the span of 9 November lost its highest altitude:\n%s", js)
+	}
+	code, csv, errOut := runCLI(t, append(args, "--format", "csv")...)
+	if code != 0 {
+		t.Fatalf("--format csv: exit %d: %s", code, errOut)
+	}
+	row := regexp.MustCompile(`(?m)^2026-11-10,sun-band:5\.\.40,.*$`).FindString(csv)
+	if f := strings.Split(row, ","); len(f) < 12 || f[10] != "all-day" || f[11] != "" {
+		t.Errorf("CSV: the span around the clock has part/altitude %q, want all-day and none", row)
+	}
+}

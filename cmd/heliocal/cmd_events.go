@@ -352,6 +352,9 @@ type jsonEvent struct {
 	Kind  string `json:"kind"`
 	Start string `json:"start,omitempty"` // none for a date-only event
 	End   string `json:"end,omitempty"`
+	// Open marks a band's span not left before the listing ends (near a
+	// pole): End is then the end of the listing, not the Sun's leaving.
+	Open bool `json:"open,omitempty"`
 	// eclipse fields (max, type, magnitudes, phases), inline
 	*jsonEclipse
 	Direction string   `json:"direction,omitempty"`
@@ -421,6 +424,7 @@ func toJSONEvent(e feed.Event) jsonEvent {
 	if !e.End.IsZero() {
 		j.End = utcStamp(e.End)
 	}
+	j.Open = e.Open
 	switch {
 	case e.Kind.Name == "solar-noon" || e.Kind.Name == "moon-transit" || feed.MergedSpan(e):
 		a := math.Round(e.Altitude*1e4) / 1e4

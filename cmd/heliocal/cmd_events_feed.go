@@ -330,13 +330,13 @@ var eventsCSVHeader = []string{"date", "kind", "start_utc", "end_utc", "directio
 	"until", "detail", "part", "altitude_deg", "distance_au", "day_length_s", "day_change_s", "illuminated", "lamp_s",
 	"target_not_reached", "uncertainty_s", "max", "type", "magnitude", "obscuration", "umbral_magnitude",
 	"partial_start", "partial_end", "total_start", "total_end", "azimuth_deg", "direct_sun_s",
-	"visible_s", "visible_start", "visible_end"}
+	"visible_s", "visible_start", "visible_end", "open"}
 
 // writeEventsCSVRows writes the rows of events and notes (one chunk of
 // dates) under eventsCSVHeader, by local date, notes first on their date.
 func writeEventsCSVRows(cw *csv.Writer, loc *time.Location, events []feed.Event, notes []feed.Note) error {
 	for _, r := range mergeRows(events, notes) {
-		if e := r.event; e != nil && plainJSONKinds[e.Kind.Name] && !e.DirectSun {
+		if e := r.event; e != nil && plainJSONKinds[e.Kind.Name] && !e.DirectSun && !e.Open {
 			if err := cw.Write(plainCSVRow(e, loc)); err != nil {
 				return err
 			}

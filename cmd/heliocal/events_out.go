@@ -165,7 +165,7 @@ func (j *jsonSink) event(e *feed.Event) {
 	}
 	j.events++
 	k := j.kind(&e.Kind, e.Direction)
-	if !k.plain || e.DirectSun {
+	if !k.plain || e.DirectSun || e.Open {
 		obj, err := json.MarshalIndent(toJSONEvent(*e), "    ", "  ")
 		if err != nil { // plain strings and finite numbers: cannot fail
 			panic(err)

@@ -2,6 +2,7 @@ package main
 
 import (
 	"regexp"
+	"slices"
 	"strings"
 	"testing"
 )
@@ -97,5 +98,47 @@ func TestAroundTheClockHasNoAltitude(t *testing.T) {
 	row := regexp.MustCompile(`(?m)^2026-11-10,sun-band:5\.\.40,.*$`).FindString(csv)
 	if f := strings.Split(row, ","); len(f) < 12 || f[10] != "all-day" || f[11] != "" {
 		t.Errorf("CSV: the span around the clock has part/altitude %q, want all-day and none", row)
+	}
+}
+
+// A band's span that the Sun has not left when the listing ends (the
+// McMurdo span of TestAroundTheClockHasNoAltitude, listed to 12 November
+// 2026 only) ends in JSON and CSV at the end of the listing, which is no
+// crossing of the Sun: "open" says so, as the table's "until past the end of
+// the listing" does. A closed span has no "open".
+func TestOpenSpanMarked(t *testing.T) {
+	args := []string{"events", "--lat", "-77.8", "--lon", "166.7", "--tz", "Antarctica/McMurdo",
+		"--from", "2026-11-09", "--to", "2026-11-12", "--kinds", "sun-band:5..40"}
+	code, table, errOut := runCLI(t, args...)
+	if code != 0 || !strings.Contains(table, "until past the end of the listing, around the clock") {
+		t.Fatalf("exit %d: %s\n%s", code, errOut, table)
+	}
+	code, js, errOut := runCLI(t, append(args, "--format", "json")...)
+	if code != 0 {
+		t.Fatalf("--format json: exit %d: %s", code, errOut)
+	}
+	// the end of 12 November in Antarctica/McMurdo (NZDT, UTC+13)
+	open := regexp.MustCompile(`"start": "2026-11-09T13:24:1\d\.\d+Z",\s+"end": "2026-11-12T11:00:00\.000Z",\s+"open": true,\s+"date": "2026-11-10"`)
+	if !open.MatchString(js) || strings.Count(js, `"open"`) != 1 {
+		t.Errorf("JSON: want the span of 10 November, and it alone, open:\n%s", js)
+	}
+	code, csv, errOut := runCLI(t, append(args, "--format", "csv")...)
+	if code != 0 {
+		t.Fatalf("--format csv: exit %d: %s", code, errOut)
+	}
+	lines := strings.Split(strings.TrimSpace(csv), "\n")
+	col := slices.Index(strings.Split(lines[0], ","), "open")
+	if col < 0 {
+		t.Fatalf("CSV: no column open: %s", lines[0])
+	}
+	for _, l := range lines[1:] {
+		f := strings.Split(l, ",")
+		want := ""
+		if strings.HasPrefix(l, "2026-11-10,") {
+			want = "true"
+		}
+		if len(f) <= col || f[col] != want {
+			t.Errorf("CSV: open %q, want %q: %s", f[min(col, len(f)-1)], want, l)
+		}
 	}
 }

@@ -17,7 +17,7 @@ set -euo pipefail
 cd "$(dirname "$0")/../.."
 out=${1:-cmd/heliocal/default.pgo}
 tmp=$(mktemp -d)
-trap 'rm -rf "$tmp"' EXIT
+trap 'rm -rf "$tmp" "$out.new"' EXIT
 go test -c -o "$tmp/cmd.test" ./cmd/heliocal
 go test -c -o "$tmp/publish.test" ./feed/publish
 # the benchmarks read testdata relative to their package's directory
@@ -27,6 +27,8 @@ go test -c -o "$tmp/publish.test" ./feed/publish
   -test.cpuprofile "$tmp/adhoc.pprof" >/dev/null)
 (cd feed/publish && "$tmp/publish.test" -test.run '^$' -test.bench 'PublishFleet/feeds=50$' -test.benchtime 5x \
   -test.cpuprofile "$tmp/publish.pprof" >/dev/null)
-go tool pprof -proto "$tmp/events.pprof" "$tmp/adhoc.pprof" "$tmp/publish.pprof" >"$tmp/merged.pgo" 2>/dev/null
-mv "$tmp/merged.pgo" "$out"
+# written beside the output and renamed over it: a mv from another file
+# system (a tmpfs /tmp) would copy, and could leave it half-written
+go tool pprof -proto "$tmp/events.pprof" "$tmp/adhoc.pprof" "$tmp/publish.pprof" >"$out.new" 2>/dev/null
+mv "$out.new" "$out"
 echo "wrote $out ($(wc -c <"$out") bytes)"

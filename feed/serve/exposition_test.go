@@ -1,7 +1,10 @@
 package serve
 
 import (
+	"bytes"
+	"compress/gzip"
 	"errors"
+	"io"
 	"math"
 	"os"
 	"os/exec"
@@ -218,4 +221,36 @@ func TestMetricsScrapedWhileObserved(t *testing.T) {
 	close(stop)
 	<-done
 	<-done
+}
+
+// /metrics is gzipped for a scraper that takes it (Prometheus sends
+// Accept-Encoding: gzip), as the client library's handler did, and plain
+// for one that does not.
+func TestMetricsGzip(t *testing.T) {
+	s, _ := newTestServer(t, Options{})
+	h := s.Handler()
+	plainResp := get(t, h, "GET", "/metrics")
+	if ce := plainResp.Header.Get("Content-Encoding"); ce != "" {
+		t.Errorf("without Accept-Encoding: Content-Encoding %q", ce)
+	}
+	plainText := body(t, plainResp)
+	resp := get(t, h, "GET", "/metrics", "Accept-Encoding", "gzip")
+	if ce, v := resp.Header.Get("Content-Encoding"), resp.Header.Get("Vary"); ce != "gzip" || v != "Accept-Encoding" {
+		t.Fatalf("Content-Encoding %q, Vary %q, want gzip and Accept-Encoding", ce, v)
+	}
+	zr, err := gzip.NewReader(resp.Body)
+	if err != nil {
+		t.Fatal(err)
+	}
+	text, err := io.ReadAll(zr)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(plainText, "\nheliocal_feeds 2\n") || !strings.Contains(string(text), "\nheliocal_feeds 2\n") {
+		t.Errorf("/metrics, plain or gzipped, lacks heliocal_feeds 2:\n%s", text)
+	}
+	parser := expfmt.NewTextParser(model.UTF8Validation)
+	if _, err := parser.TextToMetricFamilies(bytes.NewReader(text)); err != nil {
+		t.Errorf("gzipped /metrics does not parse: %v", err)
+	}
 }

@@ -1043,11 +1043,11 @@ func describeNote(s *siteInfo, n Note) (string, string) {
 				title = fmt.Sprintf("No %s today: the Sun stays below it", name)
 			}
 			desc = title
-		case config.KindSunBand:
+		case config.KindSunBand: // the band's bounds as its spans' titles write them
 			if above {
-				title = fmt.Sprintf("The Sun stays above %s all day", degrees(n.Kind.High))
+				title = "The Sun stays above " + signedDegrees(n.Kind.High) + " all day"
 			} else {
-				title = fmt.Sprintf("The Sun stays below %s all day", degrees(n.Kind.Altitude))
+				title = "The Sun stays below " + signedDegrees(n.Kind.Altitude) + " all day"
 			}
 			desc = title
 		case "sun-altitude":
@@ -1113,7 +1113,10 @@ func noEventToday(k config.Kind) (string, string) {
 	case "sun-altitude":
 		name = "crossing of " + degrees(k.Altitude)
 	case config.KindSunBand:
-		return "No band of the Sun begins today", fmt.Sprintf("No span with the Sun between %s and %s begins on this date: the one that began before it lasts into it", degrees(k.Altitude), degrees(k.High))
+		// the band in the words of its spans' titles: "Sun between −3° and +3°"
+		band := bandBase(k.Altitude, k.High)
+		return "No span with the " + band + " begins today",
+			"No span with the " + band + " begins on this date: the one that began before it lasts into it"
 	}
 	return fmt.Sprintf("No %s today", name),
 		fmt.Sprintf("No %s on this date: around this time of year it comes close to midnight and moves from one date to the next", name)

@@ -237,6 +237,26 @@ func appendHM(b []byte, d time.Duration) []byte {
 	return append(append(b, byte('0'+m/10), byte('0'+m%10)), " min"...)
 }
 
+// SpanLength writes the length of a band's span to the minute as hm does,
+// "2 h 16 min", and a span of days near a pole (AroundTheClock) in days:
+// "83 days 23 h 09 min", not "2015 h 09 min".
+func SpanLength(d time.Duration) string { return string(appendSpanLength(nil, d)) }
+
+// appendSpanLength appends SpanLength(d) to b.
+func appendSpanLength(b []byte, d time.Duration) []byte {
+	if d = d.Round(time.Minute); d < 24*time.Hour {
+		return appendHM(b, d)
+	}
+	days := int64(d / (24 * time.Hour))
+	b = strconv.AppendInt(b, days, 10)
+	if days == 1 {
+		b = append(b, " day "...)
+	} else {
+		b = append(b, " days "...)
+	}
+	return appendDuration(b, d%(24*time.Hour), time.Minute, false)
+}
+
 // Change formats a signed day-length change as "+1 min 30 s", "−2 min 05 s"
 // or "−32 s"; a change under half a second either way is "+0 s", never
 // "−0 s".
@@ -712,7 +732,7 @@ func appendDaily(b []byte, s *siteInfo, e Event) (_ []byte, title string, ok boo
 			b = append(b, " to past the end of this calendar"...)
 		} else {
 			b = z.appendDayMark(z.appendClock(append(b, " to "...), e.End), e.End, e.Date)
-			b = append(appendHM(append(b, " ("...), span(e.Start, e.End)), ')')
+			b = append(appendSpanLength(append(b, " ("...), span(e.Start, e.End)), ')')
 		}
 		switch {
 		case days:

@@ -539,7 +539,7 @@ func detailsAt(e *feed.Event, loc *time.Location, o astro.Observer) string {
 	case e.Open:
 		parts = append(parts, "until past the end of the listing")
 	case !e.End.IsZero():
-		parts = append(parts, fmt.Sprintf("until %s%s (%s)", clock(e.End, loc), feed.DayMark(e.End, e.Date, loc), feed.Length(feed.ToSecond(e.End).Sub(feed.ToSecond(e.Start)), time.Minute)))
+		parts = append(parts, fmt.Sprintf("until %s%s (%s)", clock(e.End, loc), feed.DayMark(e.End, e.Date, loc), feed.SpanLength(feed.ToSecond(e.End).Sub(feed.ToSecond(e.Start)))))
 	}
 	words := feed.SpanWords(*e, o)
 	switch {

@@ -73,7 +73,7 @@ func TestAroundTheClockHasNoAltitude(t *testing.T) {
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, errOut)
 	}
-	if !regexp.MustCompile(`(?m)^2026-11-10 Tue  02:24:1\d NZDT  sun-band:5\.\.40  until 01:33:0\d \+84 days \(2015 h 09 min\), around the clock$`).MatchString(table) {
+	if !regexp.MustCompile(`(?m)^2026-11-10 Tue  02:24:1\d NZDT  sun-band:5\.\.40  until 01:33:0\d \+84 days \(83 days 23 h 09 min\), around the clock$`).MatchString(table) {
 		t.Errorf("the table lacks the span around the clock:\n%s", table)
 	}
 	code, js, errOut := runCLI(t, append(args, "--format", "json")...)
@@ -139,6 +139,29 @@ func TestOpenSpanMarked(t *testing.T) {
 		}
 		if len(f) <= col || f[col] != want {
 			t.Errorf("CSV: open %q, want %q: %s", f[min(col, len(f)-1)], want, l)
+		}
+	}
+}
+
+// A span of days is as long in the table as in the feed, and in days: the
+// McMurdo span from 02:24:17 NZDT on 10 November 2026 to 01:33:08 NZDT on 2
+// February 2027 lasts 83 days 23 h 08 min 51 s (calendar arithmetic), not
+// "2015 h 09 min".
+func TestSpanOfDaysInDays(t *testing.T) {
+	args := []string{"events", "--lat", "-77.8", "--lon", "166.7", "--tz", "Antarctica/McMurdo",
+		"--from", "2026-11-10", "--to", "2027-02-02", "--kinds", "sun-band:5..40"}
+	code, table, errOut := runCLI(t, args...)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	code, ics, errOut := runCLI(t, append(args, "--format", "ics")...)
+	if code != 0 {
+		t.Fatalf("--format ics: exit %d: %s", code, errOut)
+	}
+	unfolded := strings.ReplaceAll(ics, "\r\n ", "")
+	for what, out := range map[string]string{"table": table, "feed": unfolded} {
+		if !strings.Contains(out, "+84 days (83 days 23 h 09 min)") || strings.Contains(out, "2015 h") {
+			t.Errorf("%s: the span of days is not 83 days 23 h 09 min long:\n%s", what, out)
 		}
 	}
 }

@@ -995,6 +995,7 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 	f := &en.Facts
 	f.Part, f.Direction, f.Altitude, f.Azimuth, f.Distance = e.Part, e.Direction, e.Altitude, e.Azimuth, e.Distance
 	f.Illuminated, f.DayLength, f.DirectSun, f.Lamp, f.Short = e.Illuminated, e.DayLength, e.DirectSun, e.Lamp, e.Short
+	f.Open = e.Open
 	if e.Solar != nil || e.Lunar != nil {
 		f.Eclipse = e.EclipseFacts()
 	}

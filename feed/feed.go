@@ -64,6 +64,7 @@ type Facts struct {
 	Lamp        time.Duration   // lighting: the lamp period's length
 	Short       bool            // lighting: clipped, the target is not reached
 	NextDay     bool            // plans: the end falls on the next local date
+	Open        bool            // bands: not left before the window ends; End is the window's end
 	Missing     string          // plans: the start event that does not happen on the date
 	Eclipse     *EclipseFacts   // eclipses: the local circumstances; nil for other kinds
 }

@@ -118,6 +118,8 @@ type jsonEntry struct {
 	Date  string `json:"date"`
 	Start string `json:"start,omitempty"` // timed entries only
 	End   string `json:"end,omitempty"`
+	// Open: a band's span not left before the listing ends (End is its end)
+	Open bool `json:"open,omitempty"`
 	// eclipse fields (max, type, magnitudes, phases), inline as in the
 	// events of the kinds
 	*jsonEclipse
@@ -160,7 +162,7 @@ func seconds(d time.Duration) *float64 {
 func toJSONEntry(cal *feed.Calendar, e *feed.Entry) jsonEntry {
 	f := e.Facts
 	j := jsonEntry{Kind: e.Kind, Title: e.Title, Date: e.Date.Format(time.DateOnly), AllDay: e.AllDay,
-		Part: f.Part, Direction: feed.DirectionName(e.Kind, f.Direction), Note: f.Note, Short: f.Short, NextDay: f.NextDay,
+		Part: f.Part, Direction: feed.DirectionName(e.Kind, f.Direction), Note: f.Note, Short: f.Short, NextDay: f.NextDay, Open: f.Open,
 		Missing: f.Missing, UID: e.UID, Description: e.Description, jsonEclipse: eclipseJSON(f.Eclipse)}
 	if !e.AllDay {
 		j.Start = utcStamp(e.Start)
@@ -224,7 +226,7 @@ func writeEntriesJSON(w io.Writer, s *config.Site, from, to time.Time, cal *feed
 // the eclipse fields come last.
 var entriesCSVHeader = append([]string{"date", "kind", "title", "all_day", "start_utc", "end_utc", "start_local", "end_local",
 	"part", "direction", "note", "state", "until", "altitude_deg", "azimuth_deg", "distance_au", "day_length_s", "direct_sun_s", "day_change_s",
-	"illuminated", "lamp_s", "target_not_reached", "next_day", "missing_start", "alarm_s", "uid", "description"}, eclipseCSVHeader...)
+	"illuminated", "lamp_s", "target_not_reached", "next_day", "missing_start", "alarm_s", "uid", "description", "open"}, eclipseCSVHeader...)
 
 func writeEntriesCSV(w io.Writer, cal *feed.Calendar) error {
 	loc := cal.Site.Location
@@ -242,7 +244,7 @@ func writeEntriesCSV(w io.Writer, cal *feed.Calendar) error {
 		}
 		_ = cw.Write(append([]string{j.Date, j.Kind, j.Title, yes(j.AllDay), j.Start, j.End, startLocal, endLocal,
 			j.Part, j.Direction, yes(j.Note), j.State, j.Until, num(j.Altitude), num(j.Azimuth), num(j.Distance), num(j.DayLength), num(j.DirectSun),
-			num(j.DayChange), num(j.Lit), num(j.Lamp), yes(j.Short), yes(j.NextDay), j.Missing, num(j.Alarm), j.UID, j.Description},
+			num(j.DayChange), num(j.Lit), num(j.Lamp), yes(j.Short), yes(j.NextDay), j.Missing, num(j.Alarm), j.UID, j.Description, yes(j.Open)},
 			j.jsonEclipse.csvCells()...))
 	}
 	cw.Flush()
@@ -273,7 +275,10 @@ func writeEntriesTable(w io.Writer, s *config.Site, cal *feed.Calendar) error {
 		when := "all day"
 		if !e.AllDay {
 			when = feed.ToSecond(e.Start).In(loc).Format("15:04:05 MST") + feed.DayMark(e.Start, e.Date, loc)
-			if !e.End.IsZero() {
+			switch {
+			case e.Facts.Open: // the end of the listing, not the Sun's leaving the band
+				when += "–past the end of the listing"
+			case !e.End.IsZero():
 				when += "–" + clock(e.End, loc) + feed.DayMark(e.End, e.Date, loc)
 			}
 		}

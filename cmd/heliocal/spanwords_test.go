@@ -1,6 +1,7 @@
 package main
 
 import (
+	"encoding/csv"
 	"regexp"
 	"slices"
 	"strings"
@@ -163,5 +164,49 @@ func TestSpanOfDaysInDays(t *testing.T) {
 		if !strings.Contains(out, "+84 days (83 days 23 h 09 min)") || strings.Contains(out, "2015 h") {
 			t.Errorf("%s: the span of days is not 83 days 23 h 09 min long:\n%s", what, out)
 		}
+	}
+}
+
+// A feed's entries (--feed) mark the open span of TestOpenSpanMarked as the
+// events do: the table's time reads "–past the end of the listing", not the
+// end of the listing as a time, and JSON and CSV have "open".
+func TestFeedEntryOpenSpanMarked(t *testing.T) {
+	cfg := writeConfig(t, `sites:
+  - {id: hut, name: Ross Ice Shelf Hut, latitude: -77.8, longitude: 166.7, timezone: Antarctica/McMurdo}
+feeds:
+  - {id: hut-band, title: Hut band, site: hut, kinds: ["sun-band:5..40"]}
+`)
+	args := []string{"events", "--config", cfg, "--feed", "hut-band", "--from", "2026-11-09", "--to", "2026-11-11"}
+	code, table, errOut := runCLI(t, args...)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	if !regexp.MustCompile(`(?m)^2026-11-10 Tue  02:24:1\d NZDT–past the end of the listing  sun-band:5\.\.40  Sun between \+5° and \+40° \(around the clock\)$`).MatchString(table) {
+		t.Errorf("the table does not mark the open span:\n%s", table)
+	}
+	code, js, errOut := runCLI(t, append(args, "--format", "json")...)
+	if code != 0 {
+		t.Fatalf("--format json: exit %d: %s", code, errOut)
+	}
+	if !regexp.MustCompile(`"end": "2026-11-11T11:00:00\.000Z",\s+"open": true,`).MatchString(js) || strings.Count(js, `"open"`) != 1 {
+		t.Errorf("JSON: want the span of 10 November, and it alone, open:\n%s", js)
+	}
+	code, out, errOut := runCLI(t, append(args, "--format", "csv")...)
+	if code != 0 {
+		t.Fatalf("--format csv: exit %d: %s", code, errOut)
+	}
+	rows, err := csv.NewReader(strings.NewReader(out)).ReadAll()
+	if err != nil || len(rows) < 2 {
+		t.Fatalf("CSV: %v:\n%s", err, out)
+	}
+	col := slices.Index(rows[0], "open")
+	opens := 0
+	for _, r := range rows[1:] {
+		if col >= 0 && r[col] == "true" {
+			opens++
+		}
+	}
+	if col < 0 || opens != 1 {
+		t.Errorf("CSV: column open at %d, %d rows open, want 1:\n%s", col, opens, out)
 	}
 }

@@ -202,6 +202,9 @@ type previewEntry struct {
 	// When is Time and End as shown, each with its weekday when it falls
 	// on another date than the entry's: "23:55–Sun 06:25", "Mon 01:59–06:24".
 	When string `json:"when,omitempty"`
+	// Open marks a band's span not left before these days end (near a
+	// pole): it has no end, and When reads "from 02:24".
+	Open bool `json:"open,omitempty"`
 }
 
 type previewDay struct {
@@ -367,7 +370,10 @@ func days(cal *feed.Calendar, q AdhocQuery) []previewDay {
 			if d := start.Format(time.DateOnly); d != row {
 				pe.StartDate = d
 			}
-			if !e.End.IsZero() {
+			switch {
+			case e.Facts.Open: // its End is these days' end, not the Sun's leaving the band
+				pe.Open, pe.When = true, "from "+pe.When
+			case !e.End.IsZero():
 				end := feed.ToMinute(e.End).In(loc)
 				pe.End = end.Format("15:04")
 				if end.Format(time.DateOnly) != start.Format(time.DateOnly) {

@@ -1,0 +1,58 @@
+package main
+
+import (
+	"encoding/json"
+	"io"
+	"net/http"
+	"strings"
+	"testing"
+)
+
+// A band's span that the Sun has not left when the preview's days end has
+// no end to show: at 77.8° S, 166.7° E the Sun stays between +5° and +40°
+// from 02:24 NZDT on 10 November 2026 for 84 days (TestAroundTheClockHasNoAltitude),
+// so a preview from 9 November shows "from 02:24", open, in /at.json and the
+// /at table page, not the end of its last day as the span's ("02:24–Thu
+// 00:00" for three days).
+func TestPreviewOpenSpan(t *testing.T) {
+	ts := builderServer(t)
+	get := func(path string) string {
+		r, err := http.Get(ts.URL + path)
+		if err != nil {
+			t.Fatal(err)
+		}
+		defer r.Body.Close()
+		b, err := io.ReadAll(r.Body)
+		if err != nil || r.StatusCode != 200 {
+			t.Fatalf("%s: status %d, %v: %s", path, r.StatusCode, err, b)
+		}
+		return string(b)
+	}
+	q := "lat=-77.8&lon=166.7&tz=Antarctica/McMurdo&kinds=sun-band:5..40&start=2026-11-09"
+	var res struct {
+		Days []struct {
+			Entries []struct {
+				Title, When, End string
+				EndDate          string `json:"end_date"`
+				Open             bool
+			}
+		}
+	}
+	if err := json.Unmarshal([]byte(get("/at.json?"+q)), &res); err != nil {
+		t.Fatal(err)
+	}
+	var open []string
+	for _, d := range res.Days {
+		for _, e := range d.Entries {
+			if e.Open {
+				open = append(open, e.Title+" | "+e.When+" | "+e.End+e.EndDate)
+			}
+		}
+	}
+	if len(open) != 1 || open[0] != "Sun between +5° and +40° (around the clock) | from 02:24 | " {
+		t.Errorf("open spans %q, want one, \"from 02:24\", without an end", open)
+	}
+	if page := get("/at?" + q + "&days=3"); !strings.Contains(page, "from 02:24") || strings.Contains(page, "02:24–") {
+		t.Errorf("the table page does not show the open span \"from 02:24\":\n%s", page)
+	}
+}

@@ -15,7 +15,6 @@ import (
 	"strings"
 	"sync"
 	"sync/atomic"
-	"syscall"
 	"time"
 )
 
@@ -427,7 +426,8 @@ func (s *gcSummary) write(b []byte) []byte {
 // usual dashboards and alerts find them: process_cpu_seconds_total,
 // process_resident_memory_bytes, process_virtual_memory_bytes,
 // process_open_fds, process_max_fds, process_start_time_seconds (Linux's
-// /proc; left out where it is missing), go_goroutines, go_threads,
+// /proc, getrusage(2) and getrlimit(2) on any Unix: left out where they are
+// missing, see process_*.go), go_goroutines, go_threads,
 // go_info, go_gc_duration_seconds, go_memstats_alloc_bytes,
 // go_memstats_alloc_bytes_total, go_memstats_sys_bytes,
 // go_memstats_heap_alloc_bytes, go_memstats_heap_inuse_bytes,
@@ -458,26 +458,14 @@ func registerRuntime(r *Registry) error {
 		}
 	}
 	fs := []family{
-		&gaugeFunc{desc{n: "process_cpu_seconds_total", help: "Total user and system CPU time spent in seconds.", typ: "counter"}, func() (float64, bool) {
-			var ru syscall.Rusage
-			if syscall.Getrusage(syscall.RUSAGE_SELF, &ru) != nil {
-				return 0, false
-			}
-			return float64(ru.Utime.Nano()+ru.Stime.Nano()) / 1e9, true
-		}},
+		&gaugeFunc{desc{n: "process_cpu_seconds_total", help: "Total user and system CPU time spent in seconds.", typ: "counter"}, cpuSeconds},
 		&gaugeFunc{desc{n: "process_resident_memory_bytes", help: "Resident memory size in bytes.", typ: "gauge"}, func() (float64, bool) { return statm(1) }},
 		&gaugeFunc{desc{n: "process_virtual_memory_bytes", help: "Virtual memory size in bytes.", typ: "gauge"}, func() (float64, bool) { return statm(0) }},
 		&gaugeFunc{desc{n: "process_open_fds", help: "Number of open file descriptors.", typ: "gauge"}, func() (float64, bool) {
 			ents, err := os.ReadDir("/proc/self/fd")
 			return float64(len(ents)), err == nil
 		}},
-		&gaugeFunc{desc{n: "process_max_fds", help: "Maximum number of open file descriptors.", typ: "gauge"}, func() (float64, bool) {
-			var rl syscall.Rlimit
-			if syscall.Getrlimit(syscall.RLIMIT_NOFILE, &rl) != nil {
-				return 0, false
-			}
-			return float64(rl.Cur), true
-		}},
+		&gaugeFunc{desc{n: "process_max_fds", help: "Maximum number of open file descriptors.", typ: "gauge"}, maxFDs},
 		&gaugeFunc{desc{n: "process_start_time_seconds", help: "Start time of the process since unix epoch in seconds.", typ: "gauge"}, processStart},
 		&gaugeFunc{desc{n: "go_goroutines", help: "Number of goroutines that currently exist.", typ: "gauge"}, func() (float64, bool) {
 			return float64(runtime.NumGoroutine()), true
@@ -524,13 +512,7 @@ func registerRuntime(r *Registry) error {
 		&gaugeFunc{desc{n: "go_gc_gomemlimit_bytes", help: "Go runtime memory limit configured by the user, otherwise math.MaxInt64 (GOMEMLIMIT, debug.SetMemoryLimit).", typ: "gauge"}, func() (float64, bool) {
 			return float64(debug.SetMemoryLimit(-1)), true // a negative limit only reads it
 		}},
-		&gaugeFunc{desc{n: "process_virtual_memory_max_bytes", help: "Maximum amount of virtual memory available in bytes.", typ: "gauge"}, func() (float64, bool) {
-			var rl syscall.Rlimit
-			if syscall.Getrlimit(syscall.RLIMIT_AS, &rl) != nil {
-				return 0, false
-			}
-			return float64(rl.Cur), true
-		}},
+		&gaugeFunc{desc{n: "process_virtual_memory_max_bytes", help: "Maximum amount of virtual memory available in bytes.", typ: "gauge"}, maxVirtual},
 		&gaugeFunc{desc{n: "process_network_receive_bytes_total", help: "Number of bytes received by the process over the network.", typ: "counter"}, func() (float64, bool) { return netDev(0) }},
 		&gaugeFunc{desc{n: "process_network_transmit_bytes_total", help: "Number of bytes sent by the process over the network.", typ: "counter"}, func() (float64, bool) { return netDev(8) }},
 	}
@@ -581,6 +563,30 @@ func netDev(col int) (float64, bool) {
 		sum += float64(n)
 	}
 	return sum, true
+}
+
+// maxVirtual is the soft limit on the process's address space, from
+// /proc/self/limits ("Max address space"; unlimited is 2^64 − 1, as
+// getrlimit(2) gives RLIM_INFINITY).
+func maxVirtual() (float64, bool) {
+	data, err := os.ReadFile("/proc/self/limits")
+	if err != nil {
+		return 0, false
+	}
+	for line := range strings.Lines(string(data)) {
+		if v, ok := strings.CutPrefix(line, "Max address space"); ok {
+			f := strings.Fields(v)
+			if len(f) == 0 {
+				return 0, false
+			}
+			if f[0] == "unlimited" {
+				return math.MaxUint64, true
+			}
+			n, err := strconv.ParseUint(f[0], 10, 64)
+			return float64(n), err == nil
+		}
+	}
+	return 0, false
 }
 
 // userHZ is the unit of /proc's clock-tick fields: 100 on every Linux

@@ -254,3 +254,38 @@ func TestMetricsGzip(t *testing.T) {
 		t.Errorf("gzipped /metrics does not parse: %v", err)
 	}
 }
+
+// Label values and help texts are escaped as the text format 0.0.4 says
+// (a backslash, a double quote in a label value, a line feed): Prometheus's
+// parser reads back the very strings, and a label value with all three
+// stays one series.
+func TestMetricsEscaping(t *testing.T) {
+	reg := NewRegistry()
+	c := newCounterVec("escape_test_total", "Help with a \\ backslash\nand a second line.", "path")
+	if err := reg.register(c); err != nil {
+		t.Fatal(err)
+	}
+	odd := "a\"quoted\" C:\\dir\nnext line"
+	c.WithLabelValues(odd).Inc()
+	c.WithLabelValues("plain").Inc()
+	c.WithLabelValues("plain").Inc()
+	parser := expfmt.NewTextParser(model.UTF8Validation)
+	fams, err := parser.TextToMetricFamilies(bytes.NewReader(reg.WriteText(nil)))
+	if err != nil {
+		t.Fatalf("does not parse: %v\n%s", err, reg.WriteText(nil))
+	}
+	f := fams["escape_test_total"]
+	if f == nil {
+		t.Fatal("escape_test_total missing")
+	}
+	if f.GetHelp() != "Help with a \\ backslash\nand a second line." {
+		t.Errorf("help read back as %q", f.GetHelp())
+	}
+	got := map[string]float64{}
+	for _, m := range f.GetMetric() {
+		got[m.GetLabel()[0].GetValue()] = m.GetCounter().GetValue()
+	}
+	if len(got) != 2 || got[odd] != 1 || got["plain"] != 2 {
+		t.Errorf("series read back as %v, want %q: 1 and plain: 2", got, odd)
+	}
+}

@@ -45,6 +45,8 @@ import (
 	"sync/atomic"
 	"syscall"
 	"time"
+
+	"heliocal/internal/cputime"
 )
 
 func main() {
@@ -355,7 +357,7 @@ func measure(name string, conns, n int, worker func(l *tally)) *result {
 	locals := make([]tally, conns)
 	var wg sync.WaitGroup
 	cpu0, cpuOK := processCPU(serverPID)
-	self0 := selfCPU()
+	self0 := cputime.Used()
 	start := time.Now()
 	for w := range conns {
 		l := &locals[w]
@@ -368,7 +370,7 @@ func measure(name string, conns, n int, worker func(l *tally)) *result {
 	if cpu1, ok := processCPU(serverPID); ok && cpuOK {
 		r.serverCPU = cpu1 - cpu0
 	}
-	r.clientCPU = selfCPU() - self0
+	r.clientCPU = cputime.Used() - self0
 	r.serverRSS = processPeakRSS(serverPID)
 	for _, l := range locals {
 		for _, x := range l.samples {
@@ -611,13 +613,4 @@ func processPeakRSS(pid int) int64 {
 		}
 	}
 	return 0
-}
-
-// selfCPU is this process's CPU time.
-func selfCPU() time.Duration {
-	var ru syscall.Rusage
-	if syscall.Getrusage(syscall.RUSAGE_SELF, &ru) != nil {
-		return 0
-	}
-	return time.Duration(ru.Utime.Nano() + ru.Stime.Nano())
 }

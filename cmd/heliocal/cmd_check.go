@@ -26,7 +26,9 @@ func newCheckCommand(g *globals) *cobra.Command {
 		Long: `Validate the configuration (every problem is listed, each with its field and value) and,
 when it is valid, build every feed once and print the sites, the feeds, their event counts
 and sizes. A feed larger than service.max_feed_bytes gets a warning: some widely used web
-calendars are reported to drop events from subscriptions over about 1 MB.
+calendars are reported to drop events from subscriptions over about 1 MB. A lighting
+latest_off (earliest_on) that comes before the evening lamps start (after the morning lamps
+end) on some dates, and so does not limit them there, gets a warning too.
 
 --format json prints one JSON document on standard output for scripts: the sites and feeds
 of a valid configuration, or {"valid": false, "problems": [...]} with one object per
@@ -212,6 +214,7 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 				r.Warnings = append(r.Warnings, fmt.Sprintf("feed %q: %s: %s; the feed shows only this note for it", f.ID, e.Kind, e.Title))
 			}
 		}
+		r.Warnings = append(r.Warnings, lampLimitWarnings(&f, cal)...)
 		if over {
 			got, most := publish.FormatBytesOver(int64(len(data)), int64(limit))
 			r.Warnings = append(r.Warnings, fmt.Sprintf("feed %q is %s, over service.max_feed_bytes (%s): some web calendars drop events from subscriptions this large; shorten days_back/days_ahead or split the kinds into several feeds", f.ID, got, most))

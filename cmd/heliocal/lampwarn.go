@@ -1,0 +1,84 @@
+package main
+
+import (
+	"fmt"
+	"time"
+
+	"heliocal/config"
+	"heliocal/feed"
+)
+
+// lampLimitWarnings finds the lighting limits of feed f that do nothing on
+// some of its dates: a latest_off later than noon that comes before the
+// evening lamps start (the first latest_off after the start is then the
+// next day's, past the lamps' end), or an earliest_on earlier than noon
+// that comes after the morning lamps end. A limit past midnight ("01:00")
+// or before noon in the evening is meant for the night and is not warned
+// about. It reads the lamp periods of cal, the feed as built.
+func lampLimitWarnings(f *config.Feed, cal *feed.Calendar) []string {
+	var out []string
+	loc := cal.Site.Location
+	for _, k := range f.Kinds {
+		if k.Kind.Name != config.KindLighting {
+			continue
+		}
+		for _, lim := range []struct {
+			key, value, part string
+		}{{"latest_off", k.LatestOff, "evening"}, {"earliest_on", k.EarliestOn, "morning"}} {
+			if lim.value == "" {
+				continue
+			}
+			clock, err := config.ParseClock(lim.value)
+			if err != nil {
+				continue // config has refused it already
+			}
+			evening := lim.part == "evening"
+			if evening != (clock > 12*time.Hour) || clock == 12*time.Hour {
+				continue
+			}
+			var n int
+			var first, last time.Time
+			for i := range cal.Entries {
+				e := &cal.Entries[i]
+				if e.Kind != k.Kind.String() || e.AllDay || e.Facts.Note || e.Facts.Part != lim.part {
+					continue
+				}
+				// the clock time, on the entry's date, of the end the limit
+				// does not move: an evening's start, a morning's end
+				at := e.Start
+				if !evening {
+					at = e.End
+				}
+				local := at.In(loc)
+				y, m, d := local.Date()
+				if time.Date(y, m, d, 0, 0, 0, 0, time.UTC) != e.Date {
+					continue
+				}
+				of := time.Duration(local.Hour())*time.Hour + time.Duration(local.Minute())*time.Minute + time.Duration(local.Second())*time.Second
+				if evening && of <= clock || !evening && of >= clock {
+					continue
+				}
+				if n == 0 {
+					first = e.Date
+				}
+				last = e.Date
+				n++
+			}
+			if n == 0 {
+				continue
+			}
+			dates := fmt.Sprintf("on %s", first.Format("2 Jan 2006"))
+			if n > 1 {
+				dates = fmt.Sprintf("on %d dates between %s and %s", n, first.Format("2 Jan 2006"), last.Format("2 Jan 2006"))
+			}
+			if evening {
+				out = append(out, fmt.Sprintf("feed %q: %s latest_off %q comes before the evening lamps start %s, so it does not limit them: they run until the target is reached; for no evening lamps on those dates, use months: or lamps: morning",
+					f.ID, k.Kind, lim.value, dates))
+			} else {
+				out = append(out, fmt.Sprintf("feed %q: %s earliest_on %q comes after the morning lamps end %s, so it does not limit them: they start as early as the target needs; for no morning lamps on those dates, use months: or lamps: evening",
+					f.ID, k.Kind, lim.value, dates))
+			}
+		}
+	}
+	return out
+}

@@ -22,6 +22,7 @@ func lampLimitWarnings(f *config.Feed, cal *feed.Calendar) []string {
 		if k.Kind.Name != config.KindLighting {
 			continue
 		}
+		name := k.Kind.String()
 		for _, lim := range []struct {
 			key, value, part string
 		}{{"latest_off", k.LatestOff, "evening"}, {"earliest_on", k.EarliestOn, "morning"}} {
@@ -40,7 +41,7 @@ func lampLimitWarnings(f *config.Feed, cal *feed.Calendar) []string {
 			var first, last time.Time
 			for i := range cal.Entries {
 				e := &cal.Entries[i]
-				if e.Kind != k.Kind.String() || e.AllDay || e.Facts.Note || e.Facts.Part != lim.part {
+				if e.Kind != name || e.AllDay || e.Facts.Note || e.Facts.Part != lim.part {
 					continue
 				}
 				// the clock time, on the entry's date, of the end the limit

@@ -90,6 +90,18 @@ func (r *Registry) ServeHTTP(w http.ResponseWriter, req *http.Request) {
 type desc struct {
 	n, help, typ string
 	labels       []string // in the order WithLabelValues takes them
+	order        []int    // indices of labels sorted by name, as the text format writes them
+}
+
+// newDesc is the desc of a family with labels: their order by name is
+// worked out once here, not on every sample line of every scrape.
+func newDesc(name, help, typ string, labels ...string) desc {
+	order := make([]int, len(labels))
+	for i := range order {
+		order[i] = i
+	}
+	slices.SortFunc(order, func(x, y int) int { return strings.Compare(labels[x], labels[y]) })
+	return desc{n: name, help: help, typ: typ, labels: labels, order: order}
 }
 
 func (d *desc) name() string { return d.n }
@@ -123,19 +135,14 @@ func (d *desc) series(b []byte, suffix string, values []string, extra, extraValu
 	b = append(b, suffix...)
 	if len(d.labels) > 0 || extra != "" {
 		b = append(b, '{')
-		order := make([]int, len(d.labels))
-		for i := range order {
-			order[i] = i
-		}
-		slices.SortFunc(order, func(x, y int) int { return strings.Compare(d.labels[x], d.labels[y]) })
-		for k, i := range order {
+		for k, i := range d.order {
 			if k > 0 {
 				b = append(b, ',')
 			}
 			b = appendLabel(b, d.labels[i], values[i])
 		}
 		if extra != "" {
-			if len(order) > 0 {
+			if len(d.order) > 0 {
 				b = append(b, ',')
 			}
 			b = appendLabel(b, extra, extraValue)
@@ -228,16 +235,11 @@ func (v *vec[T]) with(n int, values []string) *T {
 }
 
 // each calls fn for every child, in the order of their label values taken
-// by label name (names: the family's labels), as Prometheus writes them.
-func (v *vec[T]) each(names []string, fn func(values []string, c *T)) {
+// by label name (byName: the family's desc.order), as Prometheus writes them.
+func (v *vec[T]) each(byName []int, fn func(values []string, c *T)) {
 	v.mu.Lock()
 	list := slices.Clone(v.list)
 	v.mu.Unlock()
-	byName := make([]int, len(names))
-	for i := range byName {
-		byName[i] = i
-	}
-	slices.SortFunc(byName, func(x, y int) int { return strings.Compare(names[x], names[y]) })
 	slices.SortFunc(list, func(x, y child[T]) int {
 		for _, l := range byName {
 			if c := strings.Compare(x.values[l], y.values[l]); c != 0 {
@@ -265,7 +267,7 @@ type counterVec struct {
 
 // newCounterVec makes a labelled counter family.
 func newCounterVec(name, help string, labels ...string) *counterVec {
-	return &counterVec{desc: desc{n: name, help: help, typ: "counter", labels: labels},
+	return &counterVec{desc: newDesc(name, help, "counter", labels...),
 		vec: vec[counter]{make: func() *counter { return &counter{} }}}
 }
 
@@ -277,7 +279,7 @@ func (c *counterVec) WithLabelValues(values ...string) *counter {
 
 func (c *counterVec) write(b []byte) []byte {
 	b = c.header(b)
-	c.each(c.labels, func(values []string, x *counter) { b = c.series(b, "", values, "", "", x.v.load()) })
+	c.each(c.order, func(values []string, x *counter) { b = c.series(b, "", values, "", "", x.v.load()) })
 	return b
 }
 
@@ -366,7 +368,7 @@ type histogramVec struct {
 }
 
 func newHistogramVec(name, help string, bounds []float64, labels ...string) *histogramVec {
-	return &histogramVec{desc: desc{n: name, help: help, typ: "histogram", labels: labels},
+	return &histogramVec{desc: newDesc(name, help, "histogram", labels...),
 		vec: vec[histogram]{make: func() *histogram { return newHistogramValues(bounds) }}}
 }
 
@@ -377,7 +379,7 @@ func (h *histogramVec) WithLabelValues(values ...string) *histogram {
 
 func (h *histogramVec) write(b []byte) []byte {
 	b = h.header(b)
-	h.each(h.labels, func(values []string, x *histogram) { b = x.write(b, &h.desc, values) })
+	h.each(h.order, func(values []string, x *histogram) { b = x.write(b, &h.desc, values) })
 	return b
 }
 
@@ -474,7 +476,7 @@ func registerRuntime(r *Registry) error {
 			n, _ := runtime.ThreadCreateProfile(nil)
 			return float64(n), true
 		}},
-		&infoFamily{desc{n: "go_info", help: "Information about the Go environment.", typ: "gauge", labels: []string{"version"}}, []string{runtime.Version()}},
+		&infoFamily{newDesc("go_info", "Information about the Go environment.", "gauge", "version"), []string{runtime.Version()}},
 		&gcSummary{desc{n: "go_gc_duration_seconds", help: "A summary of the pause duration of garbage collection cycles.", typ: "summary"}},
 		&gaugeFunc{desc{n: "go_memstats_alloc_bytes", help: "Number of bytes allocated and still in use.", typ: "gauge"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.Alloc) })},
 		&gaugeFunc{desc{n: "go_memstats_alloc_bytes_total", help: "Total number of bytes allocated, even if freed.", typ: "counter"}, memstats(func(m *runtime.MemStats) float64 { return float64(m.TotalAlloc) })},

@@ -140,9 +140,9 @@ func registry(reg *Registry) (*Registry, error) {
 // other series to see which version served them, or count the versions of
 // a fleet of replicas.
 func registerBuildInfo(reg *Registry, version, revision string) error {
-	f := &infoFamily{desc{n: "heliocal_build_info",
-		help: "A constant 1 labelled with the running build: version, VCS revision and Go release.", typ: "gauge",
-		labels: []string{"version", "revision", "goversion"}}, []string{version, revision, runtime.Version()}}
+	f := &infoFamily{newDesc("heliocal_build_info",
+		"A constant 1 labelled with the running build: version, VCS revision and Go release.", "gauge",
+		"version", "revision", "goversion"), []string{version, revision, runtime.Version()}}
 	if err := reg.register(f); err != nil {
 		return fmt.Errorf("serve: registering metrics: %w", err)
 	}

@@ -111,16 +111,7 @@ func (d *desc) header(b []byte) []byte {
 	b = append(b, "# HELP "...)
 	b = append(b, d.n...)
 	b = append(b, ' ')
-	for _, c := range []byte(d.help) {
-		switch c {
-		case '\\':
-			b = append(b, `\\`...)
-		case '\n':
-			b = append(b, `\n`...)
-		default:
-			b = append(b, c)
-		}
-	}
+	b = appendEscaped(b, d.help, false)
 	b = append(b, "\n# TYPE "...)
 	b = append(b, d.n...)
 	b = append(b, ' ')
@@ -157,19 +148,27 @@ func (d *desc) series(b []byte, suffix string, values []string, extra, extraValu
 func appendLabel(b []byte, name, value string) []byte {
 	b = append(b, name...)
 	b = append(b, `="`...)
-	for _, c := range []byte(value) {
-		switch c {
-		case '\\':
+	b = appendEscaped(b, value, true)
+	return append(b, '"')
+}
+
+// appendEscaped appends s with a backslash and a line feed escaped, as the
+// text format wants in a help text, and a double quote as well when quote
+// is set (a label value).
+func appendEscaped(b []byte, s string, quote bool) []byte {
+	for _, c := range []byte(s) {
+		switch {
+		case c == '\\':
 			b = append(b, `\\`...)
-		case '"':
-			b = append(b, `\"`...)
-		case '\n':
+		case c == '\n':
 			b = append(b, `\n`...)
+		case c == '"' && quote:
+			b = append(b, `\"`...)
 		default:
 			b = append(b, c)
 		}
 	}
-	return append(b, '"')
+	return b
 }
 
 // appendValue writes a sample value as the text format does: +Inf, -Inf,

@@ -16,6 +16,8 @@ import (
 	"sync"
 	"sync/atomic"
 	"time"
+
+	"heliocal/internal/cputime"
 )
 
 // The metrics /metrics shows, written in the Prometheus text exposition
@@ -588,6 +590,13 @@ func maxVirtual() (float64, bool) {
 		}
 	}
 	return 0, false
+}
+
+// cpuSeconds is the process's user and system CPU time (getrusage(2) on
+// Unix, see internal/cputime).
+func cpuSeconds() (float64, bool) {
+	d, ok := cputime.Read()
+	return float64(d) / 1e9, ok
 }
 
 // userHZ is the unit of /proc's clock-tick fields: 100 on every Linux

@@ -2,9 +2,8 @@
 
 package serve
 
-// Without getrusage(2) and getrlimit(2) the process's CPU time and its
-// limit on open files are left out of /metrics, as the figures of /proc are
-// where it is missing.
+// Without getrlimit(2) the process's limit on open files is left out of
+// /metrics, as its CPU time (internal/cputime) and the figures of /proc are
+// where they are missing.
 
-func cpuSeconds() (float64, bool) { return 0, false }
-func maxFDs() (float64, bool)     { return 0, false }
+func maxFDs() (float64, bool) { return 0, false }

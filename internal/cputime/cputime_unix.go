@@ -7,11 +7,12 @@ import (
 	"time"
 )
 
-// Used is the CPU time the process has used (user and system).
-func Used() time.Duration {
+// Read is the CPU time the process has used (user and system), and false
+// when getrusage(2) fails.
+func Read() (time.Duration, bool) {
 	var ru syscall.Rusage
 	if err := syscall.Getrusage(syscall.RUSAGE_SELF, &ru); err != nil {
-		return 0
+		return 0, false
 	}
-	return time.Duration(ru.Utime.Nano() + ru.Stime.Nano())
+	return time.Duration(ru.Utime.Nano() + ru.Stime.Nano()), true
 }

@@ -1381,12 +1381,13 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 			}
 			if c.inRange(d) {
 				e := Event{Kind: k, Start: start, End: m.t, Date: d, Part: part, Low: low, High: high}
-				if (part == "all-day" || part == "night") && m.t.Sub(start) <= 24*time.Hour {
+				if MergedSpan(e) {
 					// one span where a morning and an evening meet: its
 					// text gives the Sun's highest (lowest) altitude in it.
 					// Not for a span of days near a pole (AroundTheClock):
 					// the search of one day's extreme would find one of its
-					// days' extremes, not the span's
+					// days' extremes, not the span's. The writers ask
+					// MergedSpan too, so they read the altitude set here
 					h, err := c.sunExtreme(start, m.t, part == "all-day")
 					if err != nil {
 						return err

@@ -12,7 +12,13 @@ import (
 // sources: PyEphem 4.1): a morning and an evening, one span around
 // midnight, one through noon with the Sun up, one of twilight glow where
 // it does not rise, one the Sun stays in for weeks near the pole, and a
-// sun band's span through noon.
+// sun band's span through noon. The two sun bands: on 20 October 2026 the
+// Sun culminates at +1.37° (TestMergedBandSpans, PyEphem 4.1), inside
+// −2..3°, so its span runs through midday; on 20 June 2026, a day before
+// the solstice, its declination is near the obliquity of the ecliptic,
+// 23.4° (from memory), so it culminates about 90° − 78.2° + 23.4° = 35.2°
+// high, over the band's 35°, and stays above 23.4° − 11.8° = 11.6°, under
+// its 20°: a morning and an evening span.
 func TestSpanWordsAsTitles(t *testing.T) {
 	svalbard := site(t, "svalbard", 78.2, 15.6, "Arctic/Longyearbyen")
 	pole := site(t, "pole", 89.5, 0, "UTC")

@@ -65,8 +65,12 @@ func TestTableSpanWordsAsFeed(t *testing.T) {
 // between +5° and +40° from 10 November 2026 to 2 February 2027 (local),
 // climbing to 35.63° on 22 December (PyEphem 4.1, Observer −77.8°
 // 166.7°, pressure 0, elevation 0, sampled every 10 min: 35.6337° at
-// 2026-12-22 00:55 UT); a one-day search over the span had written
-// "altitude_deg": 31.8432, neither the highest nor the lowest.
+// 2026-12-22 00:55 UT). It enters through +5° at 2026-11-09 13:24:17 UT
+// and leaves at 2027-02-01 12:33:07 UT (PyEphem 4.1, the same Observer,
+// horizon 5°, next_rising and next_setting of the Sun's centre), which
+// the checks below hold to the ten seconds. A one-day search over the
+// span had written "altitude_deg": 31.8432, neither the highest nor the
+// lowest.
 func TestAroundTheClockHasNoAltitude(t *testing.T) {
 	args := []string{"events", "--lat", "-77.8", "--lon", "166.7", "--tz", "Antarctica/McMurdo",
 		"--from", "2026-11-09", "--to", "2027-02-02", "--kinds", "sun-band:5..40"}

@@ -1322,27 +1322,26 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 		return err
 	}
 	lo, hi := c.thresholds[low].xs, c.thresholds[high].xs
-	type mark = bandMark
-	part := func(m mark) string { // of a span entered at m and not left
+	part := func(m bandMark) string { // of a span entered at m and not left
 		if m.high {
 			return "evening"
 		}
 		return "morning"
 	}
 	// the crossings of both bounds in time order: each list is in order
-	var marks []mark
+	var marks []bandMark
 	if c.scratch != nil {
 		marks = slices.Grow(c.scratch.marks[:0], len(lo)+len(hi))
 		defer func() { c.scratch.marks = marks[:0] }()
 	} else {
-		marks = make([]mark, 0, len(lo)+len(hi))
+		marks = make([]bandMark, 0, len(lo)+len(hi))
 	}
 	for i, j := 0, 0; i < len(lo) || j < len(hi); {
 		if j == len(hi) || i < len(lo) && !hi[j].Time.Before(lo[i].Time) {
-			marks = append(marks, mark{lo[i].Time, false, lo[i].Direction})
+			marks = append(marks, bandMark{lo[i].Time, false, lo[i].Direction})
 			i++
 		} else {
-			marks = append(marks, mark{hi[j].Time, true, hi[j].Direction})
+			marks = append(marks, bandMark{hi[j].Time, true, hi[j].Direction})
 			j++
 		}
 	}
@@ -1351,7 +1350,7 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 	c.events = slices.Grow(c.events, len(lo)/2)
 	n0 := len(c.events) // this kind's spans start here
 	var start time.Time
-	var entered mark
+	var entered bandMark
 	var before []Event                                // spans that start before the first date
 	seen := c.flags(daysBetween(c.first, c.last) + 1) // by date from first: a span starts on it
 	for _, m := range marks {

@@ -44,7 +44,7 @@ func builderServer(t *testing.T) *httptest.Server {
 	set := func() adhocSettings { return adhocSettings{layout: newLayout(""), refresh: 24 * time.Hour} }
 	srv, err := serve.New(serve.Options{
 		Logger:            slog.New(slog.DiscardHandler),
-		Build:             serveBuild(cfg, ""),
+		Build:             serveBuild(cfg, "", slog.New(slog.DiscardHandler)),
 		Adhoc:             adhocFeedFrom(set),
 		Preview:           adhocCalendarFrom(set),
 		AdhocDefaultKinds: []string{"sunrise", "sunset", "civil-dawn", "civil-dusk"},

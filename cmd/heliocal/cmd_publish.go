@@ -32,7 +32,8 @@ func newPublishCommand(g *globals) *cobra.Command {
 		Long: `Compute every configured feed and write it to the output directory as <feed-id>.ics,
 with feeds.json (machine-readable list) and index.html (subscribe links and a chart of the
 year per site). Each file is written to a temporary file and renamed, so subscribers never
-see a half-written feed; files whose bytes did not change are not rewritten.
+see a half-written feed; files whose bytes did not change are not rewritten. A lighting
+limit that does nothing on some dates gets the warning check gives, on standard error.
 
 With --shard i/n (i counted from 0, n at most 10000) only the feeds whose id hashes to i are
 published, so n workers can share a large configuration; the last shard to finish writes the
@@ -104,6 +105,8 @@ func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Tim
 		return err
 	}
 	opts.Shard = shard
+	lamps := &lampWatch{}
+	lamps.watch(cfg, srcs)
 	if opts.Configuration, err = configDigest(cfg, base); err != nil {
 		return err
 	}
@@ -124,11 +127,13 @@ func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Tim
 	if err != nil {
 		return err
 	}
-	if !o.quiet {
-		return nil // the summary has listed the oversize feeds
+	if o.quiet { // else the summary has listed the oversize feeds
+		for _, w := range publish.Warnings(st) {
+			fmt.Fprintln(g.stderr, w)
+		}
 	}
-	for _, w := range publish.Warnings(st) {
-		fmt.Fprintln(g.stderr, w)
+	for _, w := range lamps.warnings() {
+		fmt.Fprintln(g.stderr, "warning: "+w.text) // as check writes them
 	}
 	return nil
 }

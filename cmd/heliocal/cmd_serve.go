@@ -8,6 +8,7 @@ import (
 	"net"
 	"os"
 	"os/signal"
+	"sync"
 	"sync/atomic"
 	"syscall"
 	"time"
@@ -69,7 +70,7 @@ func reloadServe(ctx context.Context, g *globals, log *slog.Logger, srv *serve.S
 		srv.RefuseReload(err)
 		return nil
 	}
-	if err := srv.Reload(ctx, serveBuild(next, baseOf(next))); err != nil {
+	if err := srv.Reload(ctx, serveBuild(next, baseOf(next), log)); err != nil {
 		log.Error("reload failed; still serving the old feeds", "err", err)
 		return nil
 	}
@@ -86,14 +87,35 @@ func reloadServe(ctx context.Context, g *globals, log *slog.Logger, srv *serve.S
 }
 
 // serveBuild returns the function that renders every feed of cfg, counting
-// "today" afresh at each call.
-func serveBuild(cfg *config.Config, base string) serve.BuildFunc {
+// "today" afresh at each call. The lighting limits that do nothing on some
+// dates (the warnings of check) are logged after the first build, and after
+// a later one only when a limit is newly warned about: a refresh that finds
+// the same limits says nothing, though its window and count of dates moved.
+func serveBuild(cfg *config.Config, base string, log *slog.Logger) serve.BuildFunc {
+	var mu sync.Mutex
+	logged := map[string]bool{} // the limits warned about by the latest build
 	return func(ctx context.Context) (*publish.Bundle, error) {
 		srcs, opts, err := build(cfg, time.Now(), newLayout(base))
 		if err != nil {
 			return nil, err
 		}
-		return publish.Render(ctx, srcs, opts)
+		lamps := &lampWatch{}
+		lamps.watch(cfg, srcs)
+		b, err := publish.Render(ctx, srcs, opts)
+		if err != nil {
+			return nil, err
+		}
+		mu.Lock()
+		defer mu.Unlock()
+		found := map[string]bool{}
+		for _, w := range lamps.warnings() {
+			if !logged[w.limit] {
+				log.Warn(w.text)
+			}
+			found[w.limit] = true
+		}
+		logged = found
+		return b, nil
 	}
 }
 
@@ -145,7 +167,7 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 	srv, err := serve.New(serve.Options{
 		Logger:            log,
 		AccessLogger:      access,
-		Build:             serveBuild(cfg, baseOf(cfg)),
+		Build:             serveBuild(cfg, baseOf(cfg), log),
 		BaseURL:           baseOf(cfg),
 		TrustedProxies:    cfg.Service.TrustedProxies,
 		Version:           v.Version,

@@ -1,11 +1,14 @@
 package main
 
 import (
+	"context"
 	"fmt"
+	"sync"
 	"time"
 
 	"heliocal/config"
 	"heliocal/feed"
+	"heliocal/feed/publish"
 )
 
 // lampLimitWarnings finds the lighting limits of feed f that do nothing on
@@ -15,8 +18,8 @@ import (
 // that comes after the morning lamps end. A limit past midnight ("01:00")
 // or before noon in the evening is meant for the night and is not warned
 // about. It reads the lamp periods of cal, the feed as built.
-func lampLimitWarnings(f *config.Feed, cal *feed.Calendar) []string {
-	var out []string
+func lampLimitWarnings(f *config.Feed, cal *feed.Calendar) []lampWarning {
+	var out []lampWarning
 	loc := cal.Site.Location
 	for _, k := range f.Kinds {
 		if k.Kind.Name != config.KindLighting {
@@ -72,14 +75,77 @@ func lampLimitWarnings(f *config.Feed, cal *feed.Calendar) []string {
 			if n > 1 {
 				dates = fmt.Sprintf("on %d dates between %s and %s", n, first.Format("2 Jan 2006"), last.Format("2 Jan 2006"))
 			}
+			w := lampWarning{limit: fmt.Sprintf("%s|%s|%s=%s", f.ID, k.Kind, lim.key, lim.value)}
 			if evening {
-				out = append(out, fmt.Sprintf("feed %q: %s latest_off %q comes before the evening lamps start %s, so it does not limit them: they run until the target is reached; for no evening lamps on those dates, use months: or lamps: morning",
-					f.ID, k.Kind, lim.value, dates))
+				w.text = fmt.Sprintf("feed %q: %s latest_off %q comes before the evening lamps start %s, so it does not limit them: they run until the target is reached; for no evening lamps on those dates, use months: or lamps: morning",
+					f.ID, k.Kind, lim.value, dates)
 			} else {
-				out = append(out, fmt.Sprintf("feed %q: %s earliest_on %q comes after the morning lamps end %s, so it does not limit them: they start as early as the target needs; for no morning lamps on those dates, use months: or lamps: evening",
-					f.ID, k.Kind, lim.value, dates))
+				w.text = fmt.Sprintf("feed %q: %s earliest_on %q comes after the morning lamps end %s, so it does not limit them: they start as early as the target needs; for no morning lamps on those dates, use months: or lamps: evening",
+					f.ID, k.Kind, lim.value, dates)
 			}
+			out = append(out, w)
 		}
+	}
+	return out
+}
+
+// lampWarning is one warning of lampLimitWarnings: its words, and the limit
+// it is about (feed, kind, option and value), which stays the same as the
+// feed's window moves and its count of dates changes.
+type lampWarning struct {
+	limit, text string
+}
+
+// hasLampLimit says whether feed f has a lighting limit that
+// lampLimitWarnings reads its calendar for.
+func hasLampLimit(f *config.Feed) bool {
+	for _, k := range f.Kinds {
+		if k.Kind.Name == config.KindLighting && (k.LatestOff != "" || k.EarliestOn != "") {
+			return true
+		}
+	}
+	return false
+}
+
+// lampWatch gathers the warnings of lampLimitWarnings while a publish or a
+// serve refresh builds the feeds, for those commands to show what check
+// shows: watch wraps the feeds' builders, and warnings lists what they found.
+type lampWatch struct {
+	mu    sync.Mutex
+	found [][]lampWarning // by feed, in the configuration's order
+}
+
+// watch makes each builder of srcs, the sources of cfg's feeds in their
+// order (build), read the calendar it builds for lamp warnings before
+// handing it on. Feeds without a lighting limit are left as they are.
+func (w *lampWatch) watch(cfg *config.Config, srcs []publish.Source) {
+	w.found = make([][]lampWarning, len(srcs))
+	for i := range srcs {
+		f := &cfg.Feeds[i]
+		if !hasLampLimit(f) {
+			continue
+		}
+		b := srcs[i].Build
+		srcs[i].Build = func(ctx context.Context) (*feed.Calendar, error) {
+			cal, err := b(ctx)
+			if err == nil && cal != nil {
+				ws := lampLimitWarnings(f, cal)
+				w.mu.Lock()
+				w.found[i] = ws
+				w.mu.Unlock()
+			}
+			return cal, err
+		}
+	}
+}
+
+// warnings are the warnings found so far, feed by feed.
+func (w *lampWatch) warnings() []lampWarning {
+	w.mu.Lock()
+	defer w.mu.Unlock()
+	var out []lampWarning
+	for _, ws := range w.found {
+		out = append(out, ws...)
 	}
 	return out
 }

@@ -1,7 +1,13 @@
 package main
 
 import (
+	"bytes"
 	"context"
+	"encoding/json"
+	"log/slog"
+	"os"
+	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 	"time"
@@ -24,18 +30,10 @@ func checkWarnings(t *testing.T, cfg string, now time.Time) []string {
 	return r.Warnings
 }
 
-// A latest_off before sunset does not limit the evening lamps (the first
-// latest_off after their start is the next day's), and check says so.
-// Havana, 23.1° N 82.4° W: sunset on 13 Mar 2027 18:37:59 CST, on 14 Mar
-// 2027 (first day of summer time) 19:38:22 CDT, on 6 Nov 2027 18:48:41
-// CDT, on 7 Nov 2027 (standard time again) 17:48:12 CST (PyEphem 4.1.4,
-// upper limb, 34′ refraction, no elevation). The natural day there never
-// reaches 14 h (13 h 33 min at the June solstice, same source), so every
-// date needs lamps: the 238 dates from 14 Mar to 6 Nov 2027 have their
-// evening lamps start after 18:45. A limit past midnight ("01:00") and one
-// in the evening before the morning lamps ("22:00") are meant for the night: no warning.
-func TestLampLimitWarning(t *testing.T) {
-	cfg := `sites:
+// havanaLamps are feeds at Havana with lighting limits, two of which do
+// nothing on some dates of the year from havanaLampsNow
+// (TestLampLimitWarning says which, and the source of its dates).
+const havanaLamps = `sites:
   - {id: malecon-farm, name: Malecón Farm, latitude: 23.1, longitude: -82.4, timezone: America/Havana}
 feeds:
   - id: havana-lamps
@@ -58,7 +56,21 @@ feeds:
     kinds:
       - {kind: "lighting:14h", lamps: morning, earliest_on: "07:25", months: [apr, may, jun, jul, aug, sep, oct]}
 `
-	got := checkWarnings(t, cfg, time.Date(2027, 1, 1, 12, 0, 0, 0, time.UTC))
+
+var havanaLampsNow = time.Date(2027, 1, 1, 12, 0, 0, 0, time.UTC)
+
+// A latest_off before sunset does not limit the evening lamps (the first
+// latest_off after their start is the next day's), and check says so.
+// Havana, 23.1° N 82.4° W: sunset on 13 Mar 2027 18:37:59 CST, on 14 Mar
+// 2027 (first day of summer time) 19:38:22 CDT, on 6 Nov 2027 18:48:41
+// CDT, on 7 Nov 2027 (standard time again) 17:48:12 CST (PyEphem 4.1.4,
+// upper limb, 34′ refraction, no elevation). The natural day there never
+// reaches 14 h (13 h 33 min at the June solstice, same source), so every
+// date needs lamps: the 238 dates from 14 Mar to 6 Nov 2027 have their
+// evening lamps start after 18:45. A limit past midnight ("01:00") and one
+// in the evening before the morning lamps ("22:00") are meant for the night: no warning.
+func TestLampLimitWarning(t *testing.T) {
+	got := checkWarnings(t, havanaLamps, havanaLampsNow)
 	want := []string{
 		`feed "havana-lamps": lighting:14h latest_off "18:45" comes before the evening lamps start on 238 dates between 14 Mar 2027 and 6 Nov 2027`,
 		// Sunrise at Havana on 11 Oct 2027 07:24:49 CDT, on 12 Oct
@@ -74,5 +86,95 @@ feeds:
 		if !strings.HasPrefix(got[i], want[i]+", so it does not limit them: ") {
 			t.Errorf("warning %d:\n%s\nwant it to start\n%s", i, got[i], want[i])
 		}
+	}
+}
+
+// publish prints check's lamp warnings, in check's words, on standard
+// error where it prints its other warnings, with --quiet too, and still
+// exits 0 (the feeds are published).
+func TestPublishLampLimitWarning(t *testing.T) {
+	want := checkWarnings(t, havanaLamps, havanaLampsNow)
+	if len(want) != 2 {
+		t.Fatalf("check warns %d times, want 2: %q", len(want), want)
+	}
+	dir := t.TempDir()
+	cfgPath := filepath.Join(dir, "havana.yaml")
+	if err := os.WriteFile(cfgPath, []byte(havanaLamps), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	for _, quiet := range []bool{false, true} {
+		var out, errOut bytes.Buffer
+		g := &globals{configPath: cfgPath, stdout: &out, stderr: &errOut, getenv: noEnv}
+		o := &publishOptions{out: filepath.Join(dir, "public"), quiet: quiet, lockWait: time.Minute}
+		if err := runPublish(context.Background(), g, o, havanaLampsNow); err != nil {
+			t.Fatalf("quiet %v: %v\n%s", quiet, err, errOut.String())
+		}
+		var lines []string
+		for _, l := range strings.Split(errOut.String(), "\n") {
+			if strings.Contains(l, "latest_off") || strings.Contains(l, "earliest_on") {
+				lines = append(lines, l)
+			}
+		}
+		if len(lines) != len(want) {
+			t.Fatalf("quiet %v: stderr:\n%s\nwant the %d warnings of check", quiet, errOut.String(), len(want))
+		}
+		for i := range want {
+			if lines[i] != "warning: "+want[i] {
+				t.Errorf("quiet %v: line\n%s\nwant\n%s", quiet, lines[i], "warning: "+want[i])
+			}
+		}
+		if out.Len() != 0 {
+			t.Errorf("quiet %v: standard output: %q", quiet, out.String())
+		}
+		if _, err := os.Stat(filepath.Join(dir, "public", "havana-lamps.ics")); err != nil {
+			t.Error(err)
+		}
+	}
+	// exit code: 0, through the command line
+	code, _, errOut := runCLI(t, "--config", cfgPath, "publish", "--quiet", "--out", filepath.Join(dir, "public2"))
+	if code != 0 || !strings.Contains(errOut, `warning: feed "havana-lamps": lighting:14h latest_off "18:45" comes before the evening lamps start`) {
+		t.Errorf("exit %d, stderr:\n%s", code, errOut)
+	}
+}
+
+// serve logs check's lamp warnings, in check's words, at its first build,
+// and at a refresh only a limit it has not warned about at the build
+// before: the same limits again log nothing.
+func TestServeLampLimitWarning(t *testing.T) {
+	c, err := config.Parse(strings.NewReader(havanaLamps), "yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	var logged lockedBuffer
+	b := serveBuild(c, "", slog.New(slog.NewJSONHandler(&logged, nil)))
+	warned := func() []string {
+		var msgs []string
+		dec := json.NewDecoder(strings.NewReader(logged.String()))
+		for dec.More() {
+			var line struct{ Level, Msg string }
+			if err := dec.Decode(&line); err != nil {
+				t.Fatal(err)
+			}
+			if line.Level == "WARN" {
+				msgs = append(msgs, line.Msg)
+			}
+		}
+		return msgs
+	}
+	if _, err := b(context.Background()); err != nil {
+		t.Fatal(err)
+	}
+	// serve's window starts today: any year ahead has summer time at
+	// Havana and April to October, so both limits warn, whatever the date
+	want := checkWarnings(t, havanaLamps, time.Now())
+	got := warned()
+	if len(want) != 2 || !slices.Equal(got, want) {
+		t.Fatalf("first build logged\n%s\nwant check's\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
+	}
+	if _, err := b(context.Background()); err != nil {
+		t.Fatal(err)
+	}
+	if got := warned(); len(got) != 2 {
+		t.Errorf("a refresh with the same limits logged them again:\n%s", strings.Join(got, "\n"))
 	}
 }

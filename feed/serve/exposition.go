@@ -316,37 +316,59 @@ func (g *gauge) write(b []byte) []byte {
 }
 
 // histogram counts observations into cumulative buckets (upper bounds,
-// increasing; +Inf is added) and keeps their sum. Its count is the +Inf
-// bucket's, as the text format wants them equal: a count of its own, read
-// apart from the buckets, could be ahead of them while observations come in.
+// increasing; +Inf is added) and keeps their sum. A scrape copies the
+// counts and the sum under the lock an observation holds, so its buckets,
+// _count and _sum are one snapshot: the count is the +Inf bucket's, and the
+// sum has neither more nor fewer observations than the buckets. The lock
+// costs an observation what the atomic add to its bucket and the
+// compare-and-swap loop of the sum cost before (two atomic instructions,
+// uncontended), and a request makes one observation.
 type histogram struct {
 	bounds []float64
-	counts []atomic.Uint64 // per bucket, not cumulative; the last is +Inf
-	sum    atomicFloat
+	les    []string // the le label of each bucket, "+Inf" last (leLabels)
+
+	mu     sync.Mutex
+	counts []uint64 // per bucket, not cumulative; the last is +Inf
+	sum    float64
 }
 
-func newHistogramValues(bounds []float64) *histogram {
-	return &histogram{bounds: bounds, counts: make([]atomic.Uint64, len(bounds)+1)}
+// leLabels formats the le label values of bounds, and "+Inf", once for a
+// histogram (or for every child of a labelled family), not at each scrape.
+func leLabels(bounds []float64) []string {
+	les := make([]string, len(bounds)+1)
+	for i, b := range bounds {
+		les[i] = string(appendValue(nil, b))
+	}
+	les[len(bounds)] = "+Inf"
+	return les
+}
+
+func newHistogramValues(bounds []float64, les []string) *histogram {
+	return &histogram{bounds: bounds, les: les, counts: make([]uint64, len(bounds)+1)}
 }
 
 // Observe records v.
 func (h *histogram) Observe(v float64) {
 	i, _ := slices.BinarySearch(h.bounds, v) // the first bound ≥ v: le is inclusive
-	h.counts[i].Add(1)
-	h.sum.add(v)
+	h.mu.Lock()
+	h.counts[i]++
+	h.sum += v
+	h.mu.Unlock()
 }
 
 func (h *histogram) write(b []byte, d *desc, values []string) []byte {
+	var buf [16]uint64
+	counts := buf[:0]
+	h.mu.Lock()
+	counts = append(counts, h.counts...)
+	sum := h.sum
+	h.mu.Unlock()
 	var cum uint64
-	for i := range h.counts {
-		cum += h.counts[i].Load()
-		le := math.Inf(1)
-		if i < len(h.bounds) {
-			le = h.bounds[i]
-		}
-		b = d.series(b, "_bucket", values, "le", string(appendValue(nil, le)), float64(cum))
+	for i, n := range counts {
+		cum += n
+		b = d.series(b, "_bucket", values, "le", h.les[i], float64(cum))
 	}
-	b = d.series(b, "_sum", values, "", "", h.sum.load())
+	b = d.series(b, "_sum", values, "", "", sum)
 	return d.series(b, "_count", values, "", "", float64(cum))
 }
 
@@ -357,7 +379,7 @@ type histogramFamily struct {
 }
 
 func newHistogram(name, help string, bounds []float64) *histogramFamily {
-	return &histogramFamily{desc{n: name, help: help, typ: "histogram"}, newHistogramValues(bounds)}
+	return &histogramFamily{desc{n: name, help: help, typ: "histogram"}, newHistogramValues(bounds, leLabels(bounds))}
 }
 
 func (h *histogramFamily) write(b []byte) []byte { return h.histogram.write(h.header(b), &h.desc, nil) }
@@ -369,8 +391,9 @@ type histogramVec struct {
 }
 
 func newHistogramVec(name, help string, bounds []float64, labels ...string) *histogramVec {
+	les := leLabels(bounds) // shared by the children
 	return &histogramVec{desc: newDesc(name, help, "histogram", labels...),
-		vec: vec[histogram]{make: func() *histogram { return newHistogramValues(bounds) }}}
+		vec: vec[histogram]{make: func() *histogram { return newHistogramValues(bounds, les) }}}
 }
 
 // WithLabelValues returns the histogram of these label values.

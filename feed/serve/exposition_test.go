@@ -11,6 +11,7 @@ import (
 	"regexp"
 	"strconv"
 	"strings"
+	"sync"
 	"testing"
 	"time"
 
@@ -221,6 +222,92 @@ func TestMetricsScrapedWhileObserved(t *testing.T) {
 	close(stop)
 	<-done
 	<-done
+}
+
+// A scrape shows each histogram as one snapshot: its buckets, _count and
+// _sum all count the same observations, even while they come in. Every
+// observation here is the same value v (a power of two, so the sums are
+// exact), so a scrape must show _sum == v·_count, the buckets from v's up
+// equal to _count and those below it 0 (the text format's rules for a
+// cumulative histogram; run with -race in .ci/run).
+func TestHistogramScrapeIsOneSnapshot(t *testing.T) {
+	const v = 0.25
+	reg := NewRegistry()
+	plain := newHistogram("test_plain_seconds", "A histogram without labels.", []float64{0.1, 0.25, 1})
+	labelled := newHistogramVec("test_labelled_seconds", "A histogram with a label.", []float64{0.001, 0.5}, "route")
+	for _, f := range []family{plain, labelled} {
+		if err := reg.register(f); err != nil {
+			t.Fatal(err)
+		}
+	}
+	stop := make(chan struct{})
+	var wg sync.WaitGroup
+	for _, h := range []*histogram{plain.histogram, labelled.WithLabelValues("feed"), plain.histogram} {
+		wg.Go(func() {
+			for {
+				select {
+				case <-stop:
+					return
+				default:
+				}
+				h.Observe(v)
+			}
+		})
+	}
+	defer func() { close(stop); wg.Wait() }()
+	line := regexp.MustCompile(`(?m)^(test_\w+?)_(bucket|sum|count)(?:\{(?:route="feed",?)?(?:le="([^"]+)")?\})? (\S+)$`)
+	var seen float64
+	for range 300 {
+		text := string(reg.WriteText(nil))
+		type snap struct {
+			sum, count float64
+			buckets    map[string]float64
+		}
+		snaps := map[string]*snap{}
+		for _, m := range line.FindAllStringSubmatch(text, -1) {
+			s := snaps[m[1]]
+			if s == nil {
+				s = &snap{buckets: map[string]float64{}}
+				snaps[m[1]] = s
+			}
+			n, err := strconv.ParseFloat(m[4], 64)
+			if err != nil {
+				t.Fatal(err)
+			}
+			switch m[2] {
+			case "sum":
+				s.sum = n
+			case "count":
+				s.count = n
+			default:
+				s.buckets[m[3]] = n
+			}
+		}
+		if len(snaps) != 2 {
+			t.Fatalf("%d histograms in\n%s", len(snaps), text)
+		}
+		for name, s := range snaps {
+			if want := map[string]int{"test_plain_seconds": 4, "test_labelled_seconds": 3}[name]; len(s.buckets) != want {
+				t.Fatalf("%s: %d buckets, want %d\n%s", name, len(s.buckets), want, text)
+			}
+			if s.sum != v*s.count {
+				t.Fatalf("%s: _sum %v, _count %v: want _sum = %v·_count\n%s", name, s.sum, s.count, v, text)
+			}
+			for le, n := range s.buckets {
+				bound, err := strconv.ParseFloat(le, 64) // reads "+Inf" too
+				if err != nil {
+					t.Fatal(err)
+				}
+				if want := map[bool]float64{true: s.count, false: 0}[bound >= v]; n != want {
+					t.Fatalf("%s: bucket le=%q %v, want %v (_count %v)\n%s", name, le, n, want, s.count, text)
+				}
+			}
+			seen = max(seen, s.count)
+		}
+	}
+	if seen == 0 {
+		t.Fatal("no observation seen by any scrape")
+	}
 }
 
 // /metrics is gzipped for a scraper that takes it (Prometheus sends

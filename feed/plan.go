@@ -502,14 +502,25 @@ func (sky *Sky) planDates(ctx context.Context, p Place, r config.DateRule, first
 	}
 	slices.SortStableFunc(evs, func(a, b anchor) int { return a.at.Compare(b.at) })
 	out = make([]planDate, 0, len(evs))
+	// A date is listed once, for the first of its anchors: two anchors give
+	// one date when a weekday rule takes them to the same weekday ("saturday
+	// after moon-phases": a first quarter on a Saturday, the full moon on
+	// the Friday after). taken marks the dates listed, by day of the window,
+	// so that the check costs the same whatever the order of the dates.
+	taken := make([]uint64, daysBetween(first, last)/64+1)
 	for _, e := range evs {
 		d := e.day
 		if r.Type == config.RuleWeekdayOf {
 			d = weekdayOf(d, r.Weekday, r.Relation)
 		}
-		if d.Before(first) || d.After(last) || slices.ContainsFunc(out, func(o planDate) bool { return o.date.Equal(d) }) {
+		if d.Before(first) || d.After(last) {
 			continue
 		}
+		i := daysBetween(first, d)
+		if taken[i/64]&(1<<(i%64)) != 0 {
+			continue
+		}
+		taken[i/64] |= 1 << (i % 64)
 		out = append(out, planDate{date: d, anchored: true, kind: e.kind, at: e.at})
 	}
 	return out, nil

@@ -86,6 +86,36 @@ func TestWeekdayRules(t *testing.T) {
 	}
 }
 
+// Two anchors of a weekday rule can fall to the same weekday, and the date
+// is then listed once, for the first of them (the duplicates planDates
+// leaves out). USNO moon-phase data (testdata/reference/moon-phases.csv):
+// new moon 2024-11-01 12:47 UT (mp-0105), first quarter 2024-11-09 05:55
+// UT (mp-0106), full moon 2024-11-15 21:28 UT (mp-0107); London keeps GMT
+// (UT) in November, and 9 November 2024 was a Saturday (Gregorian
+// calendar). "saturday after" each: 2 November, then 16 November for the
+// first quarter and again for the full moon (the first Saturday after
+// Friday 15th); "tuesday nearest" each: 29 October (outside the window),
+// then 12 November for both (3 days after the 9th, 3 days before the 15th).
+func TestWeekdayRuleTwoAnchorsOneDate(t *testing.T) {
+	london := site(t, "london", 51.5, -0.13, "Europe/London")
+	for _, tc := range []struct {
+		rule, want string
+	}{
+		{"saturday after moon-phases", "2024-11-02 2024-11-16"},
+		{"tuesday nearest moon-phases", "2024-11-12"},
+	} {
+		es := planEntries(t, london, "2024-11-01", "2024-11-20", config.Plan{Title: "Night", Date: tc.rule})
+		if got := dates(es); got != tc.want {
+			t.Errorf("%s: dates %q, want %q", tc.rule, got, tc.want)
+			continue
+		}
+		// the entry of the shared date names its first anchor
+		if d := es[len(es)-1].Description; !strings.Contains(d, "first quarter Sat 9 Nov 2024 05:5") {
+			t.Errorf("%s: the entry of two anchors names\n%s\nwant the first quarter", tc.rule, d)
+		}
+	}
+}
+
 // TestPlanDates checks the other date rules over a year: every day,
 // every <weekday>, every MM-DD (29 February only in leap years), one date,
 // and each date of an event kind.

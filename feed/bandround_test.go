@@ -3,6 +3,7 @@ package feed
 import (
 	"context"
 	"math"
+	"slices"
 	"strings"
 	"testing"
 
@@ -46,6 +47,50 @@ func TestBandExtremeStaysInsideBand(t *testing.T) {
 	} {
 		if got := degreesWithin(tc.a, tc.lo, tc.hi); got != tc.want {
 			t.Errorf("degreesWithin(%v, %v, %v) = %s, want %s", tc.a, tc.lo, tc.hi, got, tc.want)
+		}
+	}
+}
+
+// The crossings a band puts in time order are taken from the chunk's
+// buffers and taken again by the next chunk (no new slice once the first
+// chunk has sized them), and a chunk computed with reused buffers has the
+// events of one computed afresh.
+func TestBandMarksReusedByNextChunk(t *testing.T) {
+	s := site(t, "vienna", 48.2, 16.4, "Europe/Vienna")
+	sk := sky(t, "2027-01-01", "2027-03-05")
+	specs := []config.KindSpec{{Kind: mustKinds(t, "golden-hour")[0]}, {Kind: mustKinds(t, "blue-hour")[0]}}
+	p := PlaceOf(s)
+	buf := &buffers{}
+	var held []*bandMark
+	for i, first := range []string{"2027-01-02", "2027-01-30"} {
+		last := date(first).AddDate(0, 0, 27)
+		got, _, err := sk.eventsFor(context.Background(), p, specs, date(first), last, buf)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(buf.marks.list) != 2 {
+			t.Fatalf("chunk %d: %d slices of crossings, want one per band (2)", i, len(buf.marks.list))
+		}
+		if i == 0 {
+			// sized by the first chunk; the second, of as many days, needs no more
+			for _, l := range buf.marks.list {
+				held = append(held, &l[:cap(l)][cap(l)-1])
+			}
+		} else {
+			for k, l := range buf.marks.list {
+				if &l[:cap(l)][cap(l)-1] != held[k] {
+					t.Errorf("chunk %d: band %d's crossings in a new slice", i, k)
+				}
+			}
+		}
+		want, _, err := sk.EventsFor(context.Background(), p, specs, date(first), last)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(got) == 0 || !slices.EqualFunc(got, want, func(a, b Event) bool {
+			return a.Kind == b.Kind && a.Start.Equal(b.Start) && a.End.Equal(b.End) && a.Part == b.Part && a.Date.Equal(b.Date)
+		}) {
+			t.Errorf("chunk %d: %d events with reused buffers, %d afresh, or they differ", i, len(got), len(want))
 		}
 	}
 }

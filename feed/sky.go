@@ -287,8 +287,8 @@ type buffers struct {
 	times     reuse[time.Time]
 	durations reuse[time.Duration]
 	flags     reuse[bool]
+	marks     reuse[bandMark] // the crossings of a band's bounds (collector.band)
 	transits  []astro.Transit
-	marks     []bandMark // the crossings of a band's bounds (collector.band)
 }
 
 // bandMark is a crossing of one of a band's two bounds.
@@ -321,12 +321,14 @@ func (r *reuse[T]) take(n int) []T {
 // release makes every slice taken available again.
 func (r *reuse[T]) release() { r.used = 0 }
 
-// releaseWorking makes the collector's working slices by date (times,
-// durations, flags) available to the next chunk's collector.
+// releaseWorking makes the collector's working slices (times, durations,
+// flags by date, a band's crossings) available to the next chunk's
+// collector.
 func (b *buffers) releaseWorking() {
 	b.times.release()
 	b.durations.release()
 	b.flags.release()
+	b.marks.release()
 }
 
 // eventsPerDate is about how many events specs give a date: one per kind,
@@ -565,6 +567,14 @@ func (c *collector) flags(n int) []bool {
 		return make([]bool, n)
 	}
 	return c.scratch.flags.take(n)
+}
+
+// bandMarks returns n zero crossings for collector.band, as times does.
+func (c *collector) bandMarks(n int) []bandMark {
+	if c.scratch == nil {
+		return make([]bandMark, n)
+	}
+	return c.scratch.marks.take(n)
 }
 
 // zone returns the collector's cache of its zone's periods.
@@ -1329,19 +1339,13 @@ func (c *collector) band(k config.Kind, low, high float64) error {
 		return "morning"
 	}
 	// the crossings of both bounds in time order: each list is in order
-	var marks []bandMark
-	if c.scratch != nil {
-		marks = slices.Grow(c.scratch.marks[:0], len(lo)+len(hi))
-		defer func() { c.scratch.marks = marks[:0] }()
-	} else {
-		marks = make([]bandMark, 0, len(lo)+len(hi))
-	}
+	marks := c.bandMarks(len(lo) + len(hi))
 	for i, j := 0, 0; i < len(lo) || j < len(hi); {
 		if j == len(hi) || i < len(lo) && !hi[j].Time.Before(lo[i].Time) {
-			marks = append(marks, bandMark{lo[i].Time, false, lo[i].Direction})
+			marks[i+j] = bandMark{lo[i].Time, false, lo[i].Direction}
 			i++
 		} else {
-			marks = append(marks, bandMark{hi[j].Time, true, hi[j].Direction})
+			marks[i+j] = bandMark{hi[j].Time, true, hi[j].Direction}
 			j++
 		}
 	}

@@ -243,16 +243,7 @@ func TestHistogramScrapeIsOneSnapshot(t *testing.T) {
 	stop := make(chan struct{})
 	var wg sync.WaitGroup
 	for _, h := range []*histogram{plain.histogram, labelled.WithLabelValues("feed"), plain.histogram} {
-		wg.Go(func() {
-			for {
-				select {
-				case <-stop:
-					return
-				default:
-				}
-				h.Observe(v)
-			}
-		})
+		untilStopped(&wg, stop, func() bool { h.Observe(v); return true })
 	}
 	defer func() { close(stop); wg.Wait() }()
 	line := regexp.MustCompile(`(?m)^(test_\w+?)_(bucket|sum|count)(?:\{(?:route="feed",?)?(?:le="([^"]+)")?\})? (\S+)$`)

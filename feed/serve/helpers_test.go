@@ -156,3 +156,20 @@ func body(t *testing.T, r *http.Response) string {
 	}
 	return string(b)
 }
+
+// untilStopped runs fn over and over on a goroutine of wg, until stop is
+// closed or fn returns false.
+func untilStopped(wg *sync.WaitGroup, stop <-chan struct{}, fn func() bool) {
+	wg.Go(func() {
+		for {
+			select {
+			case <-stop:
+				return
+			default:
+			}
+			if !fn() {
+				return
+			}
+		}
+	})
+}

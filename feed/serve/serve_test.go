@@ -380,21 +380,15 @@ func TestConcurrentSwaps(t *testing.T) {
 	stop := make(chan struct{})
 	var wg sync.WaitGroup
 	for range 2 {
-		wg.Go(func() {
-			for {
-				select {
-				case <-stop:
-					return
-				default:
-				}
-				r := get(t, h, "GET", "/feeds/meadowbrook-sun.ics")
-				got := body(t, r)
-				sum := sha256.Sum256([]byte(got))
-				if !gens[got] || r.Header.Get("ETag") != `"`+hex.EncodeToString(sum[:])+`"` {
-					t.Error("response is not one whole generation of the feed")
-					return
-				}
+		untilStopped(&wg, stop, func() bool {
+			r := get(t, h, "GET", "/feeds/meadowbrook-sun.ics")
+			got := body(t, r)
+			sum := sha256.Sum256([]byte(got))
+			if !gens[got] || r.Header.Get("ETag") != `"`+hex.EncodeToString(sum[:])+`"` {
+				t.Error("response is not one whole generation of the feed")
+				return false
 			}
+			return true
 		})
 	}
 	for i := range 50 {

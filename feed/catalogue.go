@@ -889,6 +889,9 @@ type specState struct {
 	counted bool
 	day     int64
 	onDate  []dateCount
+	// lamp is the text of a lighting kind's entries (lightingText),
+	// looked up once for the kinds entry instead of once per entry
+	lamp *lightingText
 }
 
 // dateCount counts the entries of one date with one part and direction.
@@ -910,6 +913,10 @@ func offsetText(offset time.Duration) string {
 func (w *entryWriter) begin(spec *config.KindSpec, evs []Event, specs []config.KindSpec, si int) {
 	st := &w.cur
 	st.kind, st.cats, st.counted, st.day, st.onDate = w.kindName(spec.Kind), w.categories(spec.Kind), false, 0, st.onDate[:0]
+	st.lamp = nil
+	if spec.Kind.Name == config.KindLighting {
+		st.lamp = w.lightingText(spec)
+	}
 	off := offsetText(time.Duration(spec.Offset))
 	st.prefix = append(append(append(append(append(st.prefix[:0], w.feedID...), '|'), st.kind...), '|'), off...)
 	st.prefix = append(st.prefix, '|')
@@ -954,8 +961,12 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 	var lamp []byte // a lamp period's title, written to text when kept as it is
 	from := len(w.text)
 	if e.Kind.Name == config.KindLighting {
+		lt := w.cur.lamp // begin's, for spec
+		if lt == nil {
+			lt = w.lightingText(spec)
+		}
 		var buf [96]byte
-		w.text, lamp = w.lightingText(spec).appendDescription(w.text, buf[:0], w.site, e)
+		w.text, lamp = lt.appendDescription(w.text, buf[:0], w.site, e)
 		if offset != 0 || spec.Label != "" {
 			title, lamp = string(lamp), nil
 		}

@@ -532,15 +532,27 @@ func (c shownClock) appendSecond(b []byte) []byte {
 // calendar's description (lightingMeaning); each entry keeps its own
 // numbers.
 type lightingText struct {
-	key     lightingKey
-	natural string // "Natural day " or "Direct Sun over the skyline "
-	target  string // "16 h"
-	goal    string // "; target 16 h.\n"
-	limits  string // "lamps on no earlier than 05:30, off no later than 22:00"
+	key lightingKey
+	// the title's end: ", to reach 16 h)" and "; 16 h not reached)"
+	reached, notReached string
+	// after the period's length in the description, up to the natural
+	// day's: ").\nNatural day " ("Direct Sun over the skyline " with a
+	// skyline), and the same for one period round solar noon, centred on
+	// it or moved within the limits
+	open, centred, near string
+	goal                string // "; target 16 h.\n"
+	limits              string // "lamps on no earlier than 05:30, off no later than 22:00"
+	minimum             string // "15 min"
+	// the last line of a clipped period by its part (partIndex: morning,
+	// evening, any other), with the part's limit (partLimit): "Clipped
+	// (off no later than 22:00): the target is not reached today.\n", and
+	// when the other period makes up for it "Clipped (…); the morning
+	// lamps make up the difference: the target is reached.\n"
+	clippedShort [3]string
+	clippedMade  [3]string
 	// the limit that clips a morning period (earliest_on) and an evening
 	// one (latest_off), as limits writes it; "" when the kind has none
 	onLimit, offLimit string
-	minimum           string // "15 min"
 }
 
 // lightingKey is what a lighting kind's text depends on.
@@ -556,10 +568,14 @@ func (w *entryWriter) lightingText(spec *config.KindSpec) *lightingText {
 		return w.lamp
 	}
 	target := amount(spec.Kind.DayLength)
-	lt := &lightingText{key: key, natural: "Natural day ", target: target, goal: "; target " + target + ".\n"}
+	natural := "Natural day "
 	if spec.Natural != config.NaturalCivil && len(w.site.Skyline) > 0 {
-		lt.natural = "Direct Sun over the skyline "
+		natural = "Direct Sun over the skyline "
 	}
+	lt := &lightingText{key: key, goal: "; target " + target + ".\n",
+		reached: ", to reach " + target + ")", notReached: "; " + target + " not reached)",
+		open: ").\n" + natural, centred: "), centred on solar noon.\n" + natural,
+		near: "), as near solar noon as the limits allow.\n" + natural}
 	lt.limits = limitsOf(*spec).text
 	if spec.EarliestOn != "" {
 		lt.onLimit = limitsOf(config.KindSpec{EarliestOn: spec.EarliestOn}).text
@@ -568,8 +584,32 @@ func (w *entryWriter) lightingText(spec *config.KindSpec) *lightingText {
 		lt.offLimit = limitsOf(config.KindSpec{LatestOff: spec.LatestOff}).text
 	}
 	lt.minimum = amount(spec.MinDuration.D())
+	for i, part := range []string{partMorning, partEvening, partPolarNight} {
+		lt.clippedShort[i] = "Clipped (" + lt.partLimit(part) + "): the target is not reached today.\n"
+		lt.clippedMade[i] = "Clipped (" + lt.partLimit(part) + "); the " + otherPart(part) + " lamps make up the difference: the target is reached.\n"
+	}
 	w.lamp = lt
 	return lt
+}
+
+// partIndex numbers a part of lamps for the lines of lightingText:
+// morning 0, evening 1, any other 2.
+func partIndex(part string) int {
+	switch part {
+	case partMorning:
+		return 0
+	case partEvening:
+		return 1
+	}
+	return 2
+}
+
+// otherPart is the other period of lamps: both, for a period of the part.
+func otherPart(part string) string {
+	if part == partMorning {
+		return partEvening
+	}
+	return partMorning
 }
 
 // appendDescription appends the description of a lamp period to dst and
@@ -594,10 +634,11 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	t = appendHM(t, e.Lamp) // as the natural day below
 	lampHM := t[lamp:]
 	if e.Short {
-		t = append(append(append(t, "; "...), lt.target...), " not reached)"...)
+		t = append(t, lt.notReached...)
 	} else {
-		t = append(append(append(t, ", to reach "...), lt.target...), ')')
+		t = append(t, lt.reached...)
 	}
+	pi := partIndex(e.Part)
 	whole := e.Part == partPolarNight || e.Part == partBehindSkyline // one period round solar noon
 	b := dst
 	switch {
@@ -605,7 +646,7 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		b = append(b, "Polar night: lamps on at "...)
 	case e.Part == partBehindSkyline:
 		b = append(b, "The Sun stays behind the skyline: lamps on at "...)
-	case e.Part == partMorning:
+	case pi == 0:
 		b = append(b, "Morning lamps on at "...)
 	default:
 		b = append(b, "Evening lamps on at "...)
@@ -615,20 +656,17 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	b = append(append(b, " ("...), lampHM...)
 	switch {
 	case whole && e.Clipped:
-		b = append(b, "), as near solar noon as the limits allow.\n"...)
+		b = append(b, lt.near...)
 	case whole:
-		b = append(b, "), centred on solar noon.\n"...)
+		b = append(b, lt.centred...)
 	default:
-		b = append(b, ").\n"...)
+		b = append(b, lt.open...)
 	}
-	b = append(appendHM(append(b, lt.natural...), e.DayLength), lt.goal...)
-	other := partMorning // the other period of lamps: both
-	if e.Part == partMorning {
-		other = partEvening
-	}
+	b = append(appendHM(b, e.DayLength), lt.goal...)
+	other := otherPart(e.Part)
 	switch {
 	case whole && e.Clipped && e.Short:
-		b = append(append(append(b, "Clipped ("...), lt.limits...), "): the target is not reached today.\n"...)
+		b = append(b, lt.clippedShort[2]...)
 	case whole && e.Clipped:
 		b = append(append(append(b, "Moved within the limits ("...), lt.limits...), "): the target is reached.\n"...)
 	case e.MadeUp > 0 && e.MadeUpWhy == "minimum":
@@ -645,10 +683,9 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	switch {
 	case whole:
 	case e.Clipped && e.Short:
-		b = append(append(append(b, "Clipped ("...), lt.partLimit(e.Part)...), "): the target is not reached today.\n"...)
+		b = append(b, lt.clippedShort[pi]...)
 	case e.Clipped:
-		b = append(append(append(append(b, "Clipped ("...), lt.partLimit(e.Part)...), "); the "...), other...)
-		b = append(b, " lamps make up the difference: the target is reached.\n"...)
+		b = append(b, lt.clippedMade[pi]...)
 	case e.Short:
 		b = append(b, "The target is not reached today.\n"...)
 	}

@@ -114,7 +114,6 @@ func (c *collector) daylights(alt float64) ([]daylight, error) {
 	endsHere := unixNano(late[1])
 	for i := range out {
 		dl := &out[i]
-		*dl = daylight{}
 		endN = starts[i+2].UnixNano()
 		// the days of the date before and of this one, past midnight
 		endsBefore := endsHere
@@ -122,6 +121,22 @@ func (c *collector) daylights(alt float64) ([]daylight, error) {
 		for j < len(spans) && spans[j].s < startN {
 			j++
 		}
+		if j < len(spans) && wholeWithin(spans, j, startN, endN) {
+			// the one period of light of most dates, from its rise to its
+			// set within the date: what the loop below finds for it,
+			// without the loop
+			sp := &spans[j]
+			*dl = daylight{length: time.Duration(sp.s - sp.r), first: xs[sp.ri].Time, last: xs[sp.si].Time}
+			if j > 0 {
+				dl.dawnFrom = set(&spans[j-1])
+			}
+			if j+1 < len(spans) {
+				dl.duskTo = rise(&spans[j+1])
+			}
+			startN = endN
+			continue
+		}
+		*dl = daylight{}
 		fi, li := -1, -1
 		var firstN, lastN int64
 		for k := j; k < len(spans) && spans[k].r < endN; k++ {
@@ -173,6 +188,18 @@ func (c *collector) daylights(alt float64) ([]daylight, error) {
 		startN = endN
 	}
 	return out, nil
+}
+
+// wholeWithin reports whether spans[j] is the only period of light that
+// the local date from startN to endN (Unix nanoseconds) has, and lies
+// whole within it: from a rise after the date's start to a set before its
+// end, with no other period of light before the date ends (spans[j-1]
+// ended before the date began, as daylights skips the periods that ended
+// before it). The date's day is then that period, as daylights counts it.
+func wholeWithin(spans []lightSpan, j int, startN, endN int64) bool {
+	sp := &spans[j]
+	return sp.ri >= 0 && sp.si >= 0 && sp.r >= startN && sp.s < endN && sp.s > sp.r &&
+		(j+1 == len(spans) || spans[j+1].r >= endN)
 }
 
 // lighting adds, for each local date whose natural day is shorter than the

@@ -742,17 +742,28 @@ func (w *entryWriter) appendHash(dst, key []byte) []byte {
 	if !w.digest.sum(&sum, key) {
 		sum = sha256.Sum256(key)
 	}
-	// hex.AppendEncode's digits, written in place
-	const digits = "0123456789abcdef"
+	// hex.AppendEncode's digits, written in place 4 octets at a time
 	n := len(dst)
 	dst = slices.Grow(dst, uidLen)[:n+uidLen]
 	uid := (*[uidLen]byte)(dst[n:])
-	for i := range 12 {
-		b := sum[i]
-		uid[2*i], uid[2*i+1] = digits[b>>4], digits[b&15]
-	}
+	binary.BigEndian.PutUint64(uid[0:8], hexDigits(binary.BigEndian.Uint32(sum[0:4])))
+	binary.BigEndian.PutUint64(uid[8:16], hexDigits(binary.BigEndian.Uint32(sum[4:8])))
+	binary.BigEndian.PutUint64(uid[16:24], hexDigits(binary.BigEndian.Uint32(sum[8:12])))
 	copy(uid[24:], "@heliocal")
 	return dst
+}
+
+// hexDigits returns the 8 lower-case hex digits of v, the first in the
+// top octet: v's nibbles are spread one to an octet (each step moves the
+// upper half of every group up by the half's width), then each becomes
+// '0'+n, or 'a'+n-10 where n+6 carries into the octet's high nibble.
+func hexDigits(v uint32) uint64 {
+	x := uint64(v)
+	x = (x<<16 | x) & 0x0000ffff0000ffff
+	x = (x<<8 | x) & 0x00ff00ff00ff00ff
+	x = (x<<4 | x) & 0x0f0f0f0f0f0f0f0f
+	letters := (x + 0x0606060606060606) >> 4 & 0x0101010101010101
+	return x + 0x3030303030303030 + letters*('a'-'0'-10)
 }
 
 // sum writes the SHA-256 of a key of up to two blocks (119 octets)
@@ -971,7 +982,7 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 			title, lamp = string(lamp), nil
 		}
 	} else {
-		w.text, title = appendDescription(w.text, w.site, *e)
+		w.text, title = appendDescription(w.text, w.site, e)
 	}
 	if offset != 0 {
 		// "<title>: <clock>.\n" before the event's own description

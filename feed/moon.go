@@ -281,7 +281,7 @@ func describeMoon(s *siteInfo, e Event) (string, string) {
 			over = " over the skyline"
 		}
 		fmt.Fprintf(&b, "%s%s at %s, azimuth %s); %s, %s lit.", plainNames[e.Kind.Name], over, at,
-			appendAzimuthWords(nil, e), waxing(e), percent(e.Illuminated))
+			appendAzimuthWords(nil, &e), waxing(e), percent(e.Illuminated))
 	case "moon-transit":
 		title = "Moon highest, " + height(e.Altitude, "up")
 		fmt.Fprintf(&b, "Moon highest at %s, at %s altitude", at, degrees(e.Altitude))

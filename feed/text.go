@@ -600,7 +600,7 @@ func amount(d time.Duration) string { return Amount(d) }
 
 // describe gives the title and plain-language description of an event.
 func describe(s *siteInfo, e Event) (string, string) {
-	if b, title, ok := appendDaily(nil, s, e); ok {
+	if b, title, ok := appendDaily(nil, s, &e); ok {
 		return title, string(b)
 	}
 	loc := s.TimeZone.Location
@@ -683,18 +683,18 @@ func describe(s *siteInfo, e Event) (string, string) {
 // appendDescription appends the description of e to b and returns the
 // title: describe without its intermediate strings for the daily kinds
 // that make up most feeds (see appendDaily).
-func appendDescription(b []byte, s *siteInfo, e Event) ([]byte, string) {
+func appendDescription(b []byte, s *siteInfo, e *Event) ([]byte, string) {
 	if b, title, ok := appendDaily(b, s, e); ok {
 		return b, title
 	}
-	title, desc := describe(s, e)
+	title, desc := describe(s, *e)
 	return append(b, desc...), title
 }
 
 // appendDaily appends the description of a sunrise, a sunset or a dawn or
 // dusk of the three twilights to b, with its title; ok is false, and b
 // unchanged, for the other kinds.
-func appendDaily(b []byte, s *siteInfo, e Event) (_ []byte, title string, ok bool) {
+func appendDaily(b []byte, s *siteInfo, e *Event) (_ []byte, title string, ok bool) {
 	switch e.Kind.Name {
 	case "sunrise", "sunset":
 		// what a sunrise is (the upper limb, the refraction) is in the
@@ -724,7 +724,7 @@ func appendDaily(b []byte, s *siteInfo, e Event) (_ []byte, title string, ok boo
 		return b, title, true
 	case "golden-hour", "blue-hour", config.KindSunBand:
 		bt := s.bandText(e)
-		part, days, glow := spanPart(&e, s.flatRise)
+		part, days, glow := spanPart(e, s.flatRise)
 		title = bt.title(part)
 		z := s.zone
 		b = z.appendDayMark(z.appendClock(append(append(b, title...), " from "...), e.Start), e.Start, e.Date)
@@ -804,8 +804,8 @@ func SpanWords(e Event, o astro.Observer) string {
 // (lowest) altitude in it: the morning and evening spans meet because the
 // Sun stays under the band's upper bound all day (over its lower bound all
 // night); glow says that the Sun does not rise in the span.
-func appendMerged(b []byte, e Event, glow bool) []byte {
-	if !glow && !MergedSpan(e) {
+func appendMerged(b []byte, e *Event, glow bool) []byte {
+	if !glow && !MergedSpan(*e) {
 		return b // a morning or an evening: nothing to add (and no altitude to write)
 	}
 	alt := degreesWithin(e.Altitude, e.Low, e.High)
@@ -852,7 +852,7 @@ type bandText struct {
 }
 
 // bandText returns the text of e's band, built once per feed.
-func (s *siteInfo) bandText(e Event) *bandText {
+func (s *siteInfo) bandText(e *Event) *bandText {
 	if bt := s.band; bt != nil && bt.name == e.Kind.Name && bt.low == e.Low && bt.high == e.High {
 		return bt
 	}
@@ -932,18 +932,18 @@ func bearing(e Event) string {
 // azimuthText is an event's azimuth in whole degrees with its compass
 // point, e.g. "125°, south-east".
 func azimuthText(e Event) string {
-	return string(appendDegrees(nil, e)) + ", " + astro.CompassPoint(e.Azimuth)
+	return string(appendDegrees(nil, &e)) + ", " + astro.CompassPoint(e.Azimuth)
 }
 
 // appendAzimuthWords appends an event's azimuth as a sunrise's text has
 // it, its compass point in brackets without the closing one: "112°
 // (east-south-east".
-func appendAzimuthWords(b []byte, e Event) []byte {
+func appendAzimuthWords(b []byte, e *Event) []byte {
 	return append(append(appendDegrees(b, e), " ("...), astro.CompassPoint(e.Azimuth)...)
 }
 
 // appendDegrees appends an event's azimuth in whole degrees, 0–359: "112°".
-func appendDegrees(b []byte, e Event) []byte {
+func appendDegrees(b []byte, e *Event) []byte {
 	if az := math.Round(e.Azimuth) - 360*math.Floor(math.Round(e.Azimuth)/360); az >= 0 && az < 360 {
 		b = strconv.AppendInt(b, int64(az), 10) // a whole number of degrees, as 'f' with no decimals writes it
 	} else {

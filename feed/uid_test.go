@@ -3,6 +3,7 @@ package feed
 import (
 	"context"
 	"crypto/sha256"
+	"encoding/binary"
 	"encoding/hex"
 	"strconv"
 	"strings"
@@ -117,6 +118,20 @@ func TestBlockDigest(t *testing.T) {
 	var got [sha256.Size]byte
 	if !d.sum(&got, []byte("abc")) || hex.EncodeToString(got[:]) != "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad" {
 		t.Fatalf(`sum("abc") = %x`, got)
+	}
+}
+
+// TestHexDigits: the UIDs' 4-octets-at-a-time hex is encoding/hex's
+// (RFC 4648 §8, base 16, in lower case) for every nibble in every place.
+func TestHexDigits(t *testing.T) {
+	for _, v := range []uint32{0, 0xffffffff, 0x01234567, 0x89abcdef, 0xfedcba98, 0x76543210, 0x9a9a0f0f, 0xa0b1c2d3} {
+		var got [8]byte
+		binary.BigEndian.PutUint64(got[:], hexDigits(v))
+		var src [4]byte
+		binary.BigEndian.PutUint32(src[:], v)
+		if want := hex.EncodeToString(src[:]); string(got[:]) != want {
+			t.Errorf("hexDigits(%#x) = %q, want %q", v, got, want)
+		}
 	}
 }
 

@@ -17,9 +17,18 @@ import (
 // naming both places. Input that does not parse is left to the decoder,
 // which words the syntax error.
 func duplicateKeys(data []byte, format string) (problems []FieldError) {
+	problems, _ = duplicateKeysDoc(data, format)
+	return problems
+}
+
+// duplicateKeysDoc is duplicateKeys that also returns the YAML document
+// it parsed (nil for the other formats and for input that does not
+// parse), so that readConfig decodes it without parsing the text again:
+// parsing is most of the work of reading a large YAML configuration.
+func duplicateKeysDoc(data []byte, format string) (problems []FieldError, doc *yaml.Node) {
 	defer func() {
 		if recover() != nil {
-			problems = nil // hostile input: the decoder reports it
+			problems, doc = nil, nil // hostile input: the decoder reports it
 		}
 	}()
 	d := &dupFinder{seen: map[string]keyPlace{}, dups: map[string]bool{}}
@@ -31,7 +40,7 @@ func duplicateKeys(data []byte, format string) (problems []FieldError) {
 	case "toml":
 		d.toml(data)
 	}
-	return d.problems
+	return d.problems, d.doc
 }
 
 type keyPlace struct {
@@ -53,6 +62,9 @@ type dupFinder struct {
 	// which whole lines cannot remove
 	dropLines   [][2]int
 	inlineTable bool
+
+	// YAML: the document parsed, when it parsed as one
+	doc *yaml.Node
 }
 
 // underDuplicate reports whether path or one of its ancestors is a
@@ -137,6 +149,9 @@ func (d *dupFinder) yaml(data []byte) {
 	var doc yaml.Node
 	if yaml.Unmarshal(data, &doc) != nil {
 		return
+	}
+	if doc.Kind == yaml.DocumentNode {
+		d.doc = &doc
 	}
 	var walk func(n *yaml.Node, path string)
 	walk = func(n *yaml.Node, path string) {

@@ -1,8 +1,14 @@
 package config
 
 import (
+	"fmt"
+	"os"
+	"path/filepath"
+	"reflect"
 	"strings"
 	"testing"
+
+	"github.com/spf13/viper"
 )
 
 // A key written twice in one mapping, in any case, is refused with both
@@ -101,5 +107,46 @@ func TestDuplicateKeysListedWithOtherProblems(t *testing.T) {
 				t.Errorf("%s: no problem at %s in %v", tc.format, path, err)
 			}
 		}
+	}
+}
+
+// TestReadConfigFromDocument: a YAML configuration decoded from the
+// document duplicateKeysDoc parsed gives viper the settings, and the
+// error, that reading its text does, for the demo and every YAML file of
+// testdata/config (syntax errors, hostile shapes and mistakes included).
+func TestReadConfigFromDocument(t *testing.T) {
+	files, err := filepath.Glob("../testdata/config/*.yaml")
+	if err != nil || len(files) == 0 {
+		t.Fatalf("no YAML configurations: %v", err)
+	}
+	inputs := map[string][]byte{"demo": DemoYAML(), "empty": nil, "list": []byte("- a\n- b\n"), "scalar": []byte("12\n")}
+	for _, f := range files {
+		b, err := os.ReadFile(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		inputs[filepath.Base(f)] = b
+	}
+	fromDoc := 0
+	for name, data := range inputs {
+		_, doc := duplicateKeysDoc(data, "yaml")
+		if doc != nil {
+			fromDoc++
+		} else if name == "demo" {
+			t.Errorf("the demo's document was not kept")
+		}
+		text, parsed := viper.New(), viper.New()
+		text.SetConfigType("yaml")
+		parsed.SetConfigType("yaml")
+		errText, errDoc := readConfig(text, data, nil), readConfig(parsed, data, doc)
+		if fmt.Sprint(errText) != fmt.Sprint(errDoc) {
+			t.Errorf("%s: error %v from the document, %v from the text", name, errDoc, errText)
+		}
+		if !reflect.DeepEqual(text.AllSettings(), parsed.AllSettings()) {
+			t.Errorf("%s: settings from the document differ from the text's:\n%v\n%v", name, parsed.AllSettings(), text.AllSettings())
+		}
+	}
+	if fromDoc == len(inputs) {
+		t.Errorf("every input parsed: the test does not reach the text's own error")
 	}
 }

@@ -18,6 +18,7 @@ import (
 
 	"github.com/go-viper/mapstructure/v2"
 	"github.com/spf13/viper"
+	"go.yaml.in/yaml/v3"
 )
 
 // Defaults applied after parsing when a key is absent.
@@ -114,14 +115,15 @@ func parseFrom(r io.Reader, format string, env LookupEnv, dir string) (*Config, 
 func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, err error) {
 	// Duplicate keys are problems of their own; the first of each is kept
 	// so that every other problem of the document is listed with them.
-	dups := duplicateKeys(data, format)
+	dups, doc := duplicateKeysDoc(data, format)
 	decoded, decodedAs := data, format
 	if len(dups) > 0 {
 		decoded, decodedAs = withoutDuplicates(data, format)
+		doc = nil // the text without them is decoded
 	}
 	v := viper.New()
 	v.SetConfigType(decodedAs)
-	if err := readConfig(v, decoded); err != nil {
+	if err := readConfig(v, decoded, doc); err != nil {
 		if len(dups) > 0 {
 			return nil, newValidationError(dups)
 		}
@@ -198,12 +200,26 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 
 // readConfig runs viper's reader, turning a panic of a format decoder on
 // hostile input into an error: the file is then unreadable, never a crash.
-func readConfig(v *viper.Viper, data []byte) (err error) {
+//
+// doc, when not nil, is data's YAML document as duplicateKeysDoc parsed
+// it: decoded from there, the text is not parsed a second time. The map
+// is the one viper's ReadConfig would decode from the text (the same
+// decoder, from the same document), which MergeConfigMap takes into the
+// empty configuration as ReadConfig would; a document that does not
+// decode as a mapping is read from the text, whose error is the one
+// reported.
+func readConfig(v *viper.Viper, data []byte, doc *yaml.Node) (err error) {
 	defer func() {
 		if r := recover(); r != nil {
 			err = fmt.Errorf("malformed document")
 		}
 	}()
+	if doc != nil {
+		m := map[string]any{}
+		if doc.Decode(&m) == nil {
+			return v.MergeConfigMap(m)
+		}
+	}
 	return v.ReadConfig(bytes.NewReader(data))
 }
 

@@ -180,3 +180,31 @@ func openNew(name string, mode fs.FileMode) (*os.File, error) {
 		return os.NewFile(fd, name), nil
 	}
 }
+
+// hugePage is the size of a transparent huge page on amd64 and arm64 with
+// 4 kB pages; hugeBufferSize the room of a worker's feed buffer: a 400-day
+// feed of the daily kinds takes about 1.1 MB.
+const (
+	hugePage       = 2 << 20
+	hugeBufferSize = 2 * hugePage
+)
+
+// newFeedBuffer returns an empty buffer of hugeBufferSize bytes for a
+// worker's feeds, outside the Go heap, aligned to a huge page and marked
+// for the kernel to back it with huge pages (madvise MADV_HUGEPAGE), and
+// the function that unmaps it once nothing refers to it any more. The
+// O_DIRECT write of a feed pins the buffer's pages and builds the disk
+// request from them: one 2 MB page instead of about 270 pages of 4 kB
+// (writeDirect). Without it (mmap refused) the buffer is an ordinary
+// slice, and free does nothing.
+func newFeedBuffer() (buf []byte, free func()) {
+	m, err := syscall.Mmap(-1, 0, hugeBufferSize+hugePage, syscall.PROT_READ|syscall.PROT_WRITE, syscall.MAP_PRIVATE|syscall.MAP_ANONYMOUS)
+	if err != nil {
+		return make([]byte, 0, hugeBufferSize), func() {}
+	}
+	off := int(-uintptr(unsafe.Pointer(&m[0])) & (hugePage - 1))
+	buf = m[off : off+hugeBufferSize : off+hugeBufferSize]
+	// only a hint: without huge pages the buffer still works
+	_ = syscall.Madvise(buf, syscall.MADV_HUGEPAGE)
+	return buf[:0], func() { _ = syscall.Munmap(m) }
+}

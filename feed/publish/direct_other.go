@@ -21,3 +21,6 @@ func umaskKeeps(fs.FileMode) bool { return false }
 func openNew(name string, mode fs.FileMode) (*os.File, error) {
 	return os.OpenFile(name, os.O_RDWR|os.O_CREATE|os.O_EXCL, mode)
 }
+
+// newFeedBuffer returns an empty buffer for a worker's feeds.
+func newFeedBuffer() (buf []byte, free func()) { return nil, func() {} }

@@ -278,6 +278,13 @@ func renderAll(ctx context.Context, srcs []Source, opts *RenderOptions, work fun
 			defer wg.Done()
 			enc := opts.encoder()
 			var buf []byte
+			if work != nil {
+				// the worker's own buffer, which no feed outlives (see
+				// below): it is freed when the worker is done
+				var free func()
+				buf, free = newFeedBuffer()
+				defer free()
+			}
 			for i := range jobs {
 				if err := ctx.Err(); err != nil {
 					results[i] <- result{err: fmt.Errorf("publish: %w", err)}

@@ -155,6 +155,7 @@ type Ephemeris struct {
 // siteCache keeps the site of the last observer queried, so that the
 // queries of one observer after another (an azimuth per sunrise) prepare it
 // once. It is safe for concurrent use: a site is never changed once stored.
+// Only a valid observer is stored (its callers check it first).
 type siteCache struct{ last atomic.Pointer[cachedSite] }
 
 type cachedSite struct {
@@ -173,8 +174,16 @@ func (c *siteCache) site(o Observer) *site {
 }
 
 // query is coverage.query with the observer's site kept for the next
-// query.
+// query. The observer the cache holds was checked before it was stored,
+// so that a caller asking for one instant after another (an azimuth per
+// sunrise) has only the span checked.
 func (e *Ephemeris) query(o Observer, from, to time.Time) (*site, error) {
+	if p := e.sites.last.Load(); p != nil && p.o == o {
+		if err := e.checkSpan(from, to); err != nil {
+			return nil, err
+		}
+		return p.st, nil
+	}
 	if err := e.check(o, from, to); err != nil {
 		return nil, err
 	}

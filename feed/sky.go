@@ -1001,7 +1001,10 @@ func (c *collector) dayStarts() []time.Time {
 // (first-2..last+1), from dayStarts where it has it.
 func (c *collector) nextMidnight(d time.Time) time.Time {
 	starts := c.dayStarts() // the dates first-1..last+2
-	if base := c.first.AddDate(0, 0, -2); !d.Before(base) {
+	// first is a date at 00:00 UTC, where a day is 24 h: two days before
+	// it by Add, not AddDate's calendar arithmetic (a thousand
+	// instructions, once per date)
+	if base := c.first.Add(-48 * time.Hour); !d.Before(base) {
 		if j := daysBetween(base, d); j < len(starts) { // d+1 is date first-1+j
 			return starts[j]
 		}

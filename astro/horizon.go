@@ -329,7 +329,14 @@ func (tr *track) passageTol(st *site, from, target, tol float64) float64 {
 	if d < 0 {
 		d += 2 * math.Pi
 	}
-	t := from + d/tr.rate
+	return tr.passageNear(st, from+d/tr.rate, target, tol)
+}
+
+// passageNear is passageTol by Newton's method from guess, an instant
+// near the passage (within a fraction of the half turn on either side of
+// it).
+func (tr *track) passageNear(st *site, guess, target, tol float64) float64 {
+	t := guess
 	for range 8 {
 		e := wrapPi(tr.hourAngle(st, t)-target) / tr.rate
 		t -= e
@@ -360,15 +367,29 @@ func (tr *track) appendExtrema(out []extremum, st *site, a, b float64) []extremu
 		H += 2 * math.Pi
 	}
 	m := math.Floor(H/math.Pi) + 1 // next multiple of π
-	for {
+	// p1, p2: the last two passages (0: not yet). The Sun's next one is
+	// about as far after the last as the last after the one before
+	// (within a second), so that Newton's method starts there, not from
+	// an instant a half turn before it: one or two hour angles a passage
+	// instead of three. (The Moon's passages are found as before: its
+	// searches over different spans give the same instants to the
+	// microsecond, which its skyline's crossings are matched by.)
+	var p1, p2 float64
+	for n := 0; ; n++ {
 		target := m * math.Pi
 		upper := int64(m)%2 == 0 // m is a whole number (math.Mod took 400 instructions)
-		tp := tr.passageTol(st, t, target, 0.5)
+		var tp float64
+		if n >= 2 && tr.carry {
+			tp = tr.passageNear(st, 2*p1-p2, target, 0.5)
+		} else {
+			tp = tr.passageTol(st, t, target, 0.5)
+		}
 		if tp > b {
 			break
 		}
 		out = append(out, tr.refineExtremum(st, tp, upper))
 		t = tp + 1
+		p1, p2 = tp, p1
 		m++
 	}
 	return out
@@ -641,8 +662,17 @@ func (tr *track) appendTransits(out []Transit, st *site, from, to time.Time) []T
 	a, b := unixSeconds(from), unixSeconds(to)
 	out = slices.Grow(out, int((b-a)/secondsPerDay)+2)
 	t := a
-	for {
-		tp := tr.passage(st, t, 0)
+	// each of the Sun's transits from the two before it, as
+	// appendExtrema does its passages
+	var p1, p2 float64
+	for n := 0; ; n++ {
+		var tp float64
+		if n >= 2 && tr.carry {
+			tp = tr.passageNear(st, 2*p1-p2, 0, 1e-4)
+		} else {
+			tp = tr.passage(st, t, 0)
+		}
+		p1, p2 = tp, p1
 		if tp >= b {
 			break
 		}

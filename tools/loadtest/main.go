@@ -21,6 +21,14 @@
 // every request (from -lat upwards in steps of 0.001°), so each one misses
 // the server's cache and measures a real build; -adhoc-cached repeats one
 // query instead.
+//
+// -samples FILE writes every request of every run to FILE, one line each
+// (tab-separated, with a header): its number, its connection, when it was
+// sent (from the run's start; with -start, from the server's start, the
+// clock of the server's GODEBUG=gctrace=1 lines; and in Unix microseconds,
+// the clock of a runtime trace's clock snapshot) and how long it took,
+// so that slow requests can be set beside the server's collections and
+// whatever else happened at the time.
 package main
 
 import (
@@ -38,6 +46,7 @@ import (
 	"os/exec"
 	"os/signal"
 	"runtime"
+	"runtime/metrics"
 	"slices"
 	"strconv"
 	"strings"
@@ -64,8 +73,11 @@ func main() {
 type badInput struct{ error }
 
 // serverPID is the process started with -start, whose CPU time each run
-// reports (0: unknown).
-var serverPID int
+// reports (0: unknown), and when it was started.
+var (
+	serverPID     int
+	serverStarted time.Time
+)
 
 type config struct {
 	feed, adhoc     string
@@ -78,6 +90,7 @@ type config struct {
 	lat             float64
 	adhocCached     bool
 	startupDeadline time.Duration
+	samples         string
 }
 
 func run() error {
@@ -93,6 +106,7 @@ func run() error {
 	flag.Float64Var(&c.lat, "lat", 47.0, "first latitude of the ad-hoc run")
 	flag.BoolVar(&c.adhocCached, "adhoc-cached", false, "repeat one ad-hoc query (cache hits) instead of a new place per request")
 	flag.DurationVar(&c.startupDeadline, "wait", 2*time.Minute, "how long to wait for a started server's /healthz")
+	flag.StringVar(&c.samples, "samples", "", "write every request (number, connection, when sent, latency, status, bytes) to this file")
 	flag.Parse()
 	if c.feed == "" && c.adhoc == "" {
 		return badInput{errors.New("nothing to measure: give -feed and/or -adhoc")}
@@ -135,14 +149,24 @@ func run() error {
 	}
 
 	fmt.Printf("loadtest: GOMAXPROCS=%d (client and server share this machine's CPUs)\n", runtime.GOMAXPROCS(0))
+	var runs []*result
 	if c.feed != "" {
-		if err := measureFeed(ctx, c); err != nil {
+		rs, err := measureFeed(ctx, c)
+		if err != nil {
 			return err
 		}
+		runs = append(runs, rs...)
 	}
 	if c.adhoc != "" {
-		if err := measureAdhoc(ctx, c); err != nil {
+		r, err := measureAdhoc(ctx, c)
+		if err != nil {
 			return err
+		}
+		runs = append(runs, r)
+	}
+	if c.samples != "" {
+		if err := writeSamplesFile(c.samples, runs); err != nil {
+			return fmt.Errorf("-samples %s: %w", c.samples, err)
 		}
 	}
 	return nil
@@ -213,7 +237,7 @@ func startServer(ctx context.Context, cmdline, target string, wait time.Duration
 	if err := cmd.Start(); err != nil {
 		return nil, fmt.Errorf("starting %q: %w", cmdline, err)
 	}
-	serverPID = cmd.Process.Pid
+	serverPID, serverStarted = cmd.Process.Pid, time.Now()
 	stop := func() {
 		cmd.Process.Signal(syscall.SIGTERM)
 		cmd.Wait()
@@ -257,16 +281,22 @@ type result struct {
 	serverCPU time.Duration // CPU time the started server used during the run (0: unknown)
 	serverRSS int64         // the started server's peak resident memory so far, bytes (0: unknown)
 	clientCPU time.Duration // CPU time loadtest itself used
+	clientGC  uint64        // collections of loadtest's own heap during the run
+	serverGC  int           // collections of the server's heap during the run (-1: unknown)
 	start     time.Time     // when the run started
 	samples   []sample      // every request, for the slowest
 }
 
 // sample is one request: its number in the run, when it was sent and how
-// long its response took.
+// long its response took, its connection (0 to conns-1), status and body
+// bytes.
 type sample struct {
-	i    int
-	sent time.Time
-	took time.Duration
+	i      int
+	sent   time.Time
+	took   time.Duration
+	conn   int
+	status int
+	bytes  int64
 }
 
 // slowest is how many of the slowest requests a run lists.
@@ -317,8 +347,11 @@ func (r *result) print() {
 	if r.serverRSS > 0 {
 		fmt.Printf("  server RSS  peak %.0f MB so far\n", float64(r.serverRSS)/1e6)
 	}
+	if r.serverGC >= 0 {
+		fmt.Printf("  server GC   %d collections during the run\n", r.serverGC)
+	}
 	if r.clientCPU > 0 {
-		fmt.Printf("  client CPU  %v per request\n", r.clientCPU/time.Duration(n))
+		fmt.Printf("  client CPU  %v per request, %d collections of its own heap\n", r.clientCPU/time.Duration(n), r.clientGC)
 	}
 	if r.firstErr != nil {
 		fmt.Printf("  first error: %v\n", r.firstErr)
@@ -343,6 +376,7 @@ func pct(sorted []time.Duration, p int) time.Duration {
 
 // tally is what one connection of a run counted.
 type tally struct {
+	conn     int      // the connection's number in the run
 	samples  []sample // every request answered, in the order sent
 	statuses map[int]int
 	errors   int
@@ -357,10 +391,11 @@ func measure(name string, conns, n int, worker func(l *tally)) *result {
 	locals := make([]tally, conns)
 	var wg sync.WaitGroup
 	cpu0, cpuOK := processCPU(serverPID)
-	self0 := cputime.Used()
+	self0, gc0 := cputime.Used(), gcCycles()
 	start := time.Now()
 	for w := range conns {
 		l := &locals[w]
+		l.conn = w
 		l.statuses = map[int]int{}
 		l.samples = make([]sample, 0, n/conns+1)
 		wg.Go(func() { worker(l) })
@@ -370,7 +405,7 @@ func measure(name string, conns, n int, worker func(l *tally)) *result {
 	if cpu1, ok := processCPU(serverPID); ok && cpuOK {
 		r.serverCPU = cpu1 - cpu0
 	}
-	r.clientCPU = cputime.Used() - self0
+	r.clientCPU, r.clientGC = cputime.Used()-self0, gcCycles()-gc0
 	r.serverRSS = processPeakRSS(serverPID)
 	for _, l := range locals {
 		for _, x := range l.samples {
@@ -395,24 +430,91 @@ func firstError(a, b error) error {
 	return b
 }
 
+// gcCycles is how many collections this process's heap has had.
+func gcCycles() uint64 {
+	s := []metrics.Sample{{Name: "/gc/cycles/total:gc-cycles"}}
+	metrics.Read(s)
+	if s[0].Value.Kind() != metrics.KindUint64 {
+		return 0
+	}
+	return s[0].Value.Uint64()
+}
+
+// serverGCCount reads the server's collections so far from its /metrics
+// (go_gc_duration_seconds_count); ok is false when it has none.
+func serverGCCount(ctx context.Context, host string) (n int, ok bool) {
+	req, _ := http.NewRequestWithContext(ctx, "GET", "http://"+host+"/metrics", nil)
+	resp, err := newClient().Do(req)
+	if err != nil {
+		return 0, false
+	}
+	defer resp.Body.Close()
+	if resp.StatusCode != 200 {
+		return 0, false
+	}
+	sc := bufio.NewScanner(resp.Body)
+	sc.Buffer(nil, 1<<20)
+	for sc.Scan() {
+		if v, found := strings.CutPrefix(sc.Text(), "go_gc_duration_seconds_count "); found {
+			f, err := strconv.ParseFloat(strings.TrimSpace(v), 64)
+			return int(f), err == nil
+		}
+	}
+	return 0, false
+}
+
+// writeSamplesFile writes every request of runs to path (see -samples).
+func writeSamplesFile(path string, runs []*result) error {
+	f, err := os.Create(path)
+	if err != nil {
+		return err
+	}
+	w := bufio.NewWriter(f)
+	writeSamples(w, runs, serverStarted)
+	if err := w.Flush(); err != nil {
+		f.Close()
+		return err
+	}
+	return f.Close()
+}
+
+// writeSamples writes the header and one line per request of runs, each
+// run's requests in the order sent. server_s is when the request was sent
+// in seconds from serverStarted (empty when that is zero: no -start).
+func writeSamples(w io.Writer, runs []*result, serverStarted time.Time) {
+	fmt.Fprintln(w, "run\tn\tconn\tsent_ms\tserver_s\tsent_unix_us\tlatency_ms\tstatus\tbytes")
+	for k, r := range runs {
+		s := slices.Clone(r.samples)
+		slices.SortFunc(s, func(a, b sample) int { return a.sent.Compare(b.sent) })
+		for _, x := range s {
+			at := ""
+			if !serverStarted.IsZero() {
+				at = strconv.FormatFloat(x.sent.Sub(serverStarted).Seconds(), 'f', 4, 64)
+			}
+			fmt.Fprintf(w, "%d\t%d\t%d\t%.3f\t%s\t%d\t%.3f\t%d\t%d\n", k+1, x.i, x.conn,
+				float64(x.sent.Sub(r.start))/1e6, at, x.sent.UnixMicro(), float64(x.took)/1e6, x.status, x.bytes)
+		}
+	}
+}
+
 // measureFeed: one warm-up GET for the ETag, then a run of full GETs
 // (gzip accepted) and a run of conditional GETs.
-func measureFeed(ctx context.Context, c config) error {
+func measureFeed(ctx context.Context, c config) ([]*result, error) {
 	client := newClient()
 	req, _ := http.NewRequestWithContext(ctx, "GET", c.feed, nil)
 	req.Header.Set("Accept-Encoding", "gzip")
 	resp, err := client.Do(req)
 	if err != nil {
-		return fmt.Errorf("feed: %w", err)
+		return nil, fmt.Errorf("feed: %w", err)
 	}
 	size, _ := io.Copy(io.Discard, resp.Body)
 	resp.Body.Close()
 	if resp.StatusCode != 200 {
-		return fmt.Errorf("feed %s: status %d", c.feed, resp.StatusCode)
+		return nil, fmt.Errorf("feed %s: status %d", c.feed, resp.StatusCode)
 	}
 	etag := resp.Header.Get("ETag")
 	if etag == "" {
-		return fmt.Errorf("feed %s: no ETag: conditional GET cannot be measured", c.feed)
+		return nil, fmt.Errorf("feed %s: no ETag: conditional GET cannot be measured", c.feed)
 	}
 	fmt.Printf("feed %s: %d bytes as sent (%s), ETag %s\n", c.feed, size, orDefault(resp.Header.Get("Content-Encoding"), "identity"), etag)
 
@@ -423,7 +525,7 @@ func measureFeed(ctx context.Context, c config) error {
 	cond := rawLoad(ctx, "cached feed, conditional GET (If-None-Match) → 304", u, c.concurrency, c.requests, c.duration,
 		fixedRequest(u, "Accept-Encoding: gzip\r\nIf-None-Match: "+etag+"\r\n"))
 	cond.print()
-	return nil
+	return []*result{full, cond}, nil
 }
 
 // rawLoad sends up to n requests from conns workers for at most d, over
@@ -434,8 +536,19 @@ func measureFeed(ctx context.Context, c config) error {
 // This costs the client a fraction of what net/http.Client does, leaving
 // the shared CPUs to the server.
 func rawLoad(ctx context.Context, name string, u *url.URL, conns, n int, d time.Duration, request func(dst []byte, i int) []byte) *result {
-	ctx, cancel := context.WithTimeout(ctx, d)
+	gc0, gcOK := serverGCCount(ctx, u.Host)
+	runCtx, cancel := context.WithTimeout(ctx, d)
 	defer cancel()
+	r := rawRun(runCtx, name, u, conns, n, request)
+	r.serverGC = -1
+	if gc1, ok := serverGCCount(ctx, u.Host); ok && gcOK {
+		r.serverGC = gc1 - gc0
+	}
+	return r
+}
+
+// rawRun is rawLoad's run itself, until ctx ends.
+func rawRun(ctx context.Context, name string, u *url.URL, conns, n int, request func(dst []byte, i int) []byte) *result {
 	var issued atomic.Int64
 	return measure(name, conns, n, func(l *tally) {
 		var conn net.Conn
@@ -487,7 +600,7 @@ func rawLoad(ctx context.Context, name string, u *url.URL, conns, n int, d time.
 				fail(err)
 				continue
 			}
-			l.samples = append(l.samples, sample{i, t0, time.Since(t0)})
+			l.samples = append(l.samples, sample{i, t0, time.Since(t0), l.conn, resp.StatusCode, nb})
 			l.statuses[resp.StatusCode]++
 			l.bytes += nb
 			if resp.Close {
@@ -513,13 +626,13 @@ func requestHead(host string) string {
 
 // measureAdhoc: a new place per request (a cache miss each time) unless
 // -adhoc-cached.
-func measureAdhoc(ctx context.Context, c config) error {
+func measureAdhoc(ctx context.Context, c config) (*result, error) {
 	u, err := url.Parse(c.adhoc)
 	if err != nil {
-		return err
+		return nil, err
 	}
 	if u.Query().Has("lat") {
-		return badInput{fmt.Errorf("-adhoc %q: leave lat= out of the URL; loadtest varies it", c.adhoc)}
+		return nil, badInput{fmt.Errorf("-adhoc %q: leave lat= out of the URL; loadtest varies it", c.adhoc)}
 	}
 	name := "ad-hoc feed, a new place per request (cache miss) → 200"
 	if c.adhocCached {
@@ -527,7 +640,7 @@ func measureAdhoc(ctx context.Context, c config) error {
 	}
 	r := rawLoad(ctx, name, u, c.adhocConc, c.adhocRequests, c.duration, adhocRequest(u, c.lat, !c.adhocCached))
 	r.print()
-	return nil
+	return r, nil
 }
 
 // adhocRequest is the request builder of the ad-hoc run: u's query with

@@ -123,7 +123,7 @@ func TestSlowest(t *testing.T) {
 	t0 := time.Date(2026, 12, 3, 12, 0, 0, 0, time.UTC)
 	r := &result{start: t0}
 	for i, ms := range []int{5, 40, 7, 300, 6, 9, 41, 8} {
-		r.samples = append(r.samples, sample{i, t0.Add(time.Duration(i*10) * time.Millisecond), time.Duration(ms) * time.Millisecond})
+		r.samples = append(r.samples, sample{i: i, sent: t0.Add(time.Duration(i*10) * time.Millisecond), took: time.Duration(ms) * time.Millisecond})
 	}
 	want := "#3 at 30ms: 300ms, #6 at 60ms: 41ms, #1 at 10ms: 40ms, #5 at 50ms: 9ms, #7 at 70ms: 8ms"
 	if got := r.slowestText(); got != want {
@@ -158,4 +158,51 @@ func TestProcessPeakRSS(t *testing.T) {
 		t.Errorf("pid 0: %d, want 0 (unknown)", rss)
 	}
 	_ = big[len(big)-1]
+}
+
+// The samples file has a line per request of every run, in the order sent,
+// with when each was sent from the run's and the server's start and in
+// Unix microseconds.
+func TestWriteSamples(t *testing.T) {
+	t0 := time.Date(2026, 12, 3, 12, 0, 0, 0, time.UTC)
+	r := &result{start: t0, samples: []sample{
+		{i: 1, sent: t0.Add(1500 * time.Microsecond), took: 9 * time.Millisecond, conn: 1, status: 200, bytes: 70000},
+		{i: 0, sent: t0.Add(400 * time.Microsecond), took: 12500 * time.Microsecond, conn: 0, status: 200, bytes: 71000},
+	}}
+	var b bytes.Buffer
+	writeSamples(&b, []*result{r}, t0.Add(-2*time.Second))
+	want := "run\tn\tconn\tsent_ms\tserver_s\tsent_unix_us\tlatency_ms\tstatus\tbytes\n" +
+		"1\t0\t0\t0.400\t2.0004\t1796299200000400\t12.500\t200\t71000\n" +
+		"1\t1\t1\t1.500\t2.0015\t1796299200001500\t9.000\t200\t70000\n"
+	if b.String() != want {
+		t.Errorf("samples:\n%s\nwant:\n%s", b.String(), want)
+	}
+	b.Reset()
+	writeSamples(&b, []*result{r}, time.Time{}) // no server started: no server clock
+	if lines := strings.Split(b.String(), "\n"); len(lines) != 4 || !strings.HasPrefix(lines[1], "1\t0\t0\t0.400\t\t1796299200000400\t") {
+		t.Errorf("without a started server:\n%s", b.String())
+	}
+}
+
+// The server's collections come from its /metrics; a server without one
+// gives none.
+func TestServerGCCount(t *testing.T) {
+	srv := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		if r.URL.Path != "/metrics" {
+			http.NotFound(w, r)
+			return
+		}
+		w.Write([]byte("# HELP go_gc_duration_seconds x\ngo_gc_duration_seconds_sum 0.012\ngo_gc_duration_seconds_count 7\ngo_goroutines 9\n"))
+	}))
+	defer srv.Close()
+	u, _ := url.Parse(srv.URL)
+	if n, ok := serverGCCount(context.Background(), u.Host); !ok || n != 7 {
+		t.Errorf("serverGCCount = %d, %v; want 7, true", n, ok)
+	}
+	none := httptest.NewServer(http.NotFoundHandler())
+	defer none.Close()
+	u, _ = url.Parse(none.URL)
+	if n, ok := serverGCCount(context.Background(), u.Host); ok {
+		t.Errorf("serverGCCount without /metrics = %d, true; want false", n)
+	}
 }

@@ -11,6 +11,7 @@ import (
 	"net/http/httptest"
 	"regexp"
 	"runtime"
+	"slices"
 	"strconv"
 	"strings"
 	"sync"
@@ -724,4 +725,52 @@ func TestWarmAdhoc(t *testing.T) {
 	}
 	s, _ = newTestServer(t, Options{}) // no ad-hoc feeds: nothing to do
 	s.WarmAdhoc(t.Context())
+}
+
+// At most AdhocConcurrency ad-hoc builds run at once; the others wait and
+// start in the order they came as builds end.
+func TestAdhocBuildsAtOnce(t *testing.T) {
+	var running, most atomic.Int32
+	started := make(chan float64, 8)
+	release := make(chan struct{})
+	s, _ := newTestServer(t, Options{AdhocConcurrency: 2, AdhocTimeout: time.Hour,
+		Adhoc: writes(func(ctx context.Context, q AdhocQuery) ([]byte, error) {
+			n := running.Add(1)
+			for m := most.Load(); n > m && !most.CompareAndSwap(m, n); m = most.Load() {
+			}
+			started <- q.Latitude
+			<-release
+			running.Add(-1)
+			return adhocBytes(ctx, q)
+		})})
+	h := s.Handler()
+	var codes []<-chan int
+	for i := range 4 {
+		_, code := serveAsync(h, fmt.Sprintf("/at.ics?lat=%d&lon=10&tz=UTC&kinds=sunrise&days=3", 10+i))
+		codes = append(codes, code)
+		if i < 2 {
+			<-started // the first two start at once
+		} else {
+			time.Sleep(50 * time.Millisecond) // the third waits before the fourth comes
+		}
+	}
+	select {
+	case lat := <-started:
+		t.Fatalf("a third build (lat %v) started while two ran", lat)
+	case <-time.After(50 * time.Millisecond):
+	}
+	var order []float64
+	for range 2 {
+		release <- struct{}{} // one build ends: the next waiting one starts
+		order = append(order, <-started)
+	}
+	close(release)
+	for i, c := range codes {
+		if code := <-c; code != http.StatusOK {
+			t.Errorf("request %d: status %d", i, code)
+		}
+	}
+	if most.Load() != 2 || !slices.Equal(order, []float64{12, 13}) {
+		t.Errorf("at most %d builds at once, the waiting ones started in the order %v; want 2 and [12 13] (first come, first served)", most.Load(), order)
+	}
 }

@@ -164,8 +164,6 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 		access = slog.New(slog.DiscardHandler)
 	}
 	v := currentVersion()
-	builds, stopProcs := startServeProcs(g.getenv) // a processor left free beside the ad-hoc builds
-	defer stopProcs()
 	srv, err := serve.New(serve.Options{
 		Logger:            log,
 		AccessLogger:      access,
@@ -179,7 +177,6 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 		Page:              pageInfo(cfg),
 		AdhocDefaultKinds: []string{"sunrise", "sunset", "civil-dawn", "civil-dusk"},
 		AdhocMaxBytes:     cfg.Service.MaxFeedBytes,
-		AdhocConcurrency:  builds,
 		Schedule:          cfg.Service.Refresh,
 		ScheduleZone:      cfg.Service.RefreshZone.Location,
 	})

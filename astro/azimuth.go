@@ -19,6 +19,11 @@ import (
 // from the Greenwich meridian.
 func (st *site) azimuthFrom(H, dec, dist float64) float64 {
 	sd, cd := math.Sincos(dec)
+	return st.azimuthSC(H, sd, cd, dist)
+}
+
+// azimuthSC is azimuthFrom with the declination's sine and cosine given.
+func (st *site) azimuthSC(H, sd, cd, dist float64) float64 {
 	x, y, z := st.topoVector(H, sd, cd, dist)
 	north := -x*st.sinLat + z*st.cosLat
 	east := -y
@@ -29,10 +34,15 @@ func (st *site) azimuthFrom(H, dec, dist float64) float64 {
 	return a
 }
 
-// azimuth returns the body's topocentric azimuth (radians) at Unix second sec.
+// azimuth returns the body's topocentric azimuth (radians) at Unix second
+// sec: on a track with the declination's sine and cosine tabulated (the
+// Sun's), from them interpolated, as sinAltitude does.
 func (tr *track) azimuth(st *site, sec float64) float64 {
 	k, w := tr.weights(sec)
 	H := tr.ghaFrom(sec, k, &w) + st.lon
+	if tr.sd != nil {
+		return st.azimuthSC(H, interp(tr.sd, k, &w), interp(tr.cd, k, &w), interp(tr.dist, k, &w))
+	}
 	return st.azimuthFrom(H, interp(tr.dec, k, &w), interp(tr.dist, k, &w))
 }
 

@@ -215,7 +215,11 @@ func (c coverage) check(o Observer, from, to time.Time) error {
 }
 
 // checkSpan returns a *RangeError when from or to lies outside the coverage.
+// A single instant (from == to, an azimuth) is compared once.
 func (c coverage) checkSpan(from, to time.Time) error {
+	if !from.Before(c.from) && !from.After(c.to) && (to == from || !to.Before(c.from) && !to.After(c.to)) {
+		return nil
+	}
 	for _, t := range [2]time.Time{from, to} {
 		if t.Before(c.from) || t.After(c.to) {
 			return &RangeError{What: "time", Value: t.UTC().Format(time.RFC3339), Min: c.from.Format(time.RFC3339), Max: c.to.Format(time.RFC3339)}

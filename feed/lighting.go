@@ -253,19 +253,7 @@ func (c *collector) lighting(k config.Kind) error {
 			// one period, from sunset or to sunrise: written in place
 			c.events = append(c.events, Event{})
 			e := &c.events[len(c.events)-1]
-			if lamps == config.LampsMorning {
-				from := dl.first.Add(-short)
-				if !dl.dawnFrom.IsZero() && from.Before(dl.dawnFrom) {
-					from = dl.dawnFrom
-				}
-				c.lampPeriod(e, k, d, partMorning, from, dl.first, dl.length, direct, &lim)
-			} else {
-				to := dl.last.Add(short)
-				if !dl.duskTo.IsZero() && to.After(dl.duskTo) {
-					to = dl.duskTo
-				}
-				c.lampPeriod(e, k, d, partEvening, dl.last, to, dl.length, direct, &lim)
-			}
+			c.onePeriod(e, k, d, dl, short, lamps == config.LampsMorning, direct, &lim)
 			got, dropped := e.Lamp, time.Duration(0)
 			switch {
 			case got <= 0:
@@ -376,6 +364,56 @@ func (c *collector) lampPeriod(e *Event, k config.Kind, d time.Time, part string
 	e.Lamp = e.End.Sub(e.Start)
 }
 
+// onePeriod sets e to the one lamp period of the local date d (lamps:
+// morning or evening), as lampPeriod places it: the lamp time short before
+// the date's first light (morning) or after its last, no further than the
+// dark around that light and than the limit of its side (earliest_on,
+// latest_off). The instants are compared as Unix nanoseconds, and the
+// period's moving end is made from the instant it is taken from.
+func (c *collector) onePeriod(e *Event, k config.Kind, d time.Time, dl *daylight, short time.Duration, morning, direct bool, lim *lampLimits) {
+	// fixed: the sunset the period starts at, or the sunrise it ends at;
+	// the other end lies dist away from it, on the side of sign
+	fixed, dark, sign, part, limited := dl.last, dl.duskTo, int64(1), partEvening, lim.hasOff
+	if morning {
+		fixed, dark, sign, part, limited = dl.first, dl.dawnFrom, -1, partMorning, lim.hasOn
+	}
+	fixedN := fixed.UnixNano()
+	dist, by := int64(short), 0 // by: the lamp time, the dark's bound, the limit
+	if !dark.IsZero() {
+		if n := sign * (dark.UnixNano() - fixedN); dist > n {
+			dist, by = n, 1
+		}
+	}
+	var limit time.Time
+	if limited {
+		var n int64
+		if morning {
+			limit, n = c.onBefore(fixed, lim)
+		} else {
+			limit, n = c.offAfter(fixed, lim)
+		}
+		if n = sign * (n - fixedN); dist > n {
+			dist, by = n, 2
+		}
+	}
+	moving := limit
+	switch by {
+	case 0:
+		moving = fixed.Add(time.Duration(sign) * short)
+	case 1:
+		moving = dark
+	}
+	start, end := fixed, moving
+	if morning {
+		start, end = moving, fixed
+	}
+	if dist <= 0 { // no time left: the period ends where it starts
+		end, dist = start, 0
+	}
+	e.Kind, e.Start, e.End, e.Date, e.Part, e.DayLength, e.DirectSun = k, start, end, d, part, dl.length, direct
+	e.Clipped, e.Lamp = by == 2, time.Duration(dist)
+}
+
 // unscheduled notes a date that needs short of lamps none of which are
 // scheduled, and why: dropped is the lamp time left out for being under
 // the minimum minLen.
@@ -455,27 +493,40 @@ func limitsOf(spec config.KindSpec) lampLimits {
 // time at or before the period's end, and the first latest_off clock time
 // after its start, and marks a period it cuts Clipped.
 func (c *collector) clip(e *Event, lim *lampLimits) {
-	z := c.zone()
 	if lim.hasOn && e.Part != partEvening {
-		day := z.day(e.End)
-		t := c.clockOnDay(day, lim.on)
-		if !t.Before(e.End) {
-			t = c.clockOnDay(day-1, lim.on)
-		}
-		if e.Start.Before(t) {
+		if t, n := c.onBefore(e.End, lim); e.Start.UnixNano() < n {
 			e.Start, e.Clipped = t, true
 		}
 	}
 	if lim.hasOff && e.Part != partMorning {
-		day := z.day(e.Start)
-		t := c.clockOnDay(day, lim.off)
-		if !t.After(e.Start) {
-			t = c.clockOnDay(day+1, lim.off)
-		}
-		if e.End.After(t) {
+		if t, n := c.offAfter(e.Start, lim); e.End.UnixNano() > n {
 			e.End, e.Clipped = t, true
 		}
 	}
+}
+
+// onBefore is the last earliest_on clock time before end (the instant, and
+// as Unix nanoseconds): where the lamps before end may come on.
+func (c *collector) onBefore(end time.Time, lim *lampLimits) (time.Time, int64) {
+	day := c.zone().day(end)
+	t := c.clockOnDay(day, lim.on)
+	if n := t.UnixNano(); n < end.UnixNano() {
+		return t, n
+	}
+	t = c.clockOnDay(day-1, lim.on)
+	return t, t.UnixNano()
+}
+
+// offAfter is the first latest_off clock time after start (the instant,
+// and as Unix nanoseconds): when the lamps on from start must go off.
+func (c *collector) offAfter(start time.Time, lim *lampLimits) (time.Time, int64) {
+	day := c.zone().day(start)
+	t := c.clockOnDay(day, lim.off)
+	if n := t.UnixNano(); n > start.UnixNano() {
+		return t, n
+	}
+	t = c.clockOnDay(day+1, lim.off)
+	return t, t.UnixNano()
 }
 
 // clockOnDay is clockOn for the local date day (days since 1970-01-01):

@@ -228,13 +228,23 @@ func appendHM(b []byte, d time.Duration) []byte {
 	if d < 0 {
 		return appendDuration(b, d, time.Minute, false)
 	}
-	d = d.Round(time.Minute)
-	h, m := int64(d/time.Hour), int(d%time.Hour/time.Minute)
-	if h == 0 {
-		return append(strconv.AppendInt(b, int64(m), 10), " min"...)
+	// whole minutes, half a minute up (d.Round for d ≥ 0)
+	mins := int64(d / time.Minute)
+	if d%time.Minute >= 30*time.Second {
+		mins++
 	}
-	b = append(strconv.AppendInt(b, h, 10), " h "...)
-	return append(append(b, byte('0'+m/10), byte('0'+m%10)), " min"...)
+	h, m := mins/60, int(mins%60)
+	switch {
+	case h == 0 && m < 10:
+		return append(b, byte('0'+m), ' ', 'm', 'i', 'n')
+	case h == 0:
+		return append(b, byte('0'+m/10), byte('0'+m%10), ' ', 'm', 'i', 'n')
+	case h < 10:
+		b = append(b, byte('0'+h), ' ', 'h', ' ')
+	default:
+		b = append(strconv.AppendInt(b, h, 10), " h "...)
+	}
+	return append(b, byte('0'+m/10), byte('0'+m%10), ' ', 'm', 'i', 'n')
 }
 
 // SpanLength writes the length of a band's span to the minute as hm does,

@@ -663,6 +663,9 @@ type entryWriter struct {
 
 	// digest hashes the UIDs' keys (see appendHash).
 	digest *blockDigest
+	// clockOn, when set, finds the plans' clock times on their dates
+	// (collector.clockOnDay, from its midnights)
+	clockOn *collector
 }
 
 // kindName returns k.String(), written once per feed for the kinds with a

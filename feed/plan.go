@@ -192,7 +192,7 @@ func (sky *Sky) allPlanDates(col *collector, parsed []*plan) (planDates, error) 
 func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parsed []*plan, kinds []config.KindSpec, pd planDates, out []Entry, text []byte) ([]Entry, []byte, error) {
 	last := col.last
 	col.spec, col.maxLit = config.KindSpec{}, 0
-	w := entryWriter{feedID: feedID, site: col.siteInfo(s), noted: map[string]bool{}, last: last, out: out}
+	w := entryWriter{feedID: feedID, site: col.siteInfo(s), noted: map[string]bool{}, last: last, out: out, clockOn: col}
 	w.spans = textSpans.get(pd.total)
 	defer func() { textSpans.put(w.spans) }()
 	if text != nil && cap(text)-len(text) >= pd.total*textPerEntry {
@@ -602,7 +602,7 @@ func newPlanText(pl *plan) *planText {
 // plan writes the entry of one plan on one date. Its description and UID
 // go to text (see flushText).
 func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config.Kind]*kindTimes, cats []string) error {
-	loc, z := w.site.TimeZone.Location, w.site.zone
+	z := w.site.zone
 	d := pd.date
 	w.out = append(w.out, Entry{Kind: KindPlan, Title: pl.cfg.Title, Categories: cats, Date: d, Alarm: w.alarm})
 	en := &w.out[len(w.out)-1]
@@ -610,7 +610,7 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 	b := append(w.text, pt.lead...)
 	if pd.anchored {
 		b = append(append(append(append(b, "Date: "...), pt.rule...), " ("...), pt.anchorName(pd.kind)...)
-		b = pd.at.In(loc).AppendFormat(append(b, ' '), "Mon 2 Jan 2006 15:04 MST")
+		b = z.appendStamp(append(b, ' '), pd.at)
 		b = append(b, ").\n"...)
 	}
 	allDay := func() {
@@ -634,7 +634,7 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 		allDay()
 		return done(append(b, "All day."...))
 	}
-	start, ok, err := planTime(*pl.start, d, loc, times)
+	start, ok, err := w.planTime(*pl.start, d, times)
 	if err != nil {
 		return err
 	}
@@ -658,12 +658,12 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 	}
 	en.Start = start
 	b = append(z.appendClock(append(b, "From "...), start), pt.startWords...)
-	b = append(b, skippedClock(*pl.start, start, loc)...)
+	b = append(b, skippedClock(*pl.start, start, z)...)
 	switch {
 	case pl.end != nil:
-		end, ok, err := planTime(*pl.end, d, loc, times)
+		end, ok, err := w.planTime(*pl.end, d, times)
 		if err == nil && ok && !end.After(start) {
-			end, ok, err = planTime(*pl.end, d.AddDate(0, 0, 1), loc, times)
+			end, ok, err = w.planTime(*pl.end, d.AddDate(0, 0, 1), times)
 		}
 		if err != nil {
 			return err
@@ -679,7 +679,7 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 	if !en.End.IsZero() {
 		b = z.appendClock(append(b, " to "...), en.End)
 		if pl.end != nil {
-			b = append(append(b, pt.endWords...), skippedClock(*pl.end, en.End, loc)...)
+			b = append(append(b, pt.endWords...), skippedClock(*pl.end, en.End, z)...)
 		}
 		if ed := z.date(en.End); ed.After(d) {
 			en.Facts.NextDay = true
@@ -696,11 +696,15 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 }
 
 // planTime is the instant of a plan time on the local date d: the clock
-// time, or the event of that date with its offset; false when the event
-// does not happen on d.
-func planTime(ts config.TimeSpec, d time.Time, loc *time.Location, times map[config.Kind]*kindTimes) (time.Time, bool, error) {
+// time (clockOn, from the collector's midnights when it has them: see
+// entryWriter.clockOn), or the event of that date with its offset; false
+// when the event does not happen on d.
+func (w *entryWriter) planTime(ts config.TimeSpec, d time.Time, times map[config.Kind]*kindTimes) (time.Time, bool, error) {
 	if ts.IsClock {
-		return clockOn(d, ts.Clock, loc), true, nil
+		if w.clockOn != nil {
+			return w.clockOn.clockOnDay(floorDiv(d.Unix(), secondsPerDay), ts.Clock), true, nil
+		}
+		return clockOn(d, ts.Clock, w.site.TimeZone.Location), true, nil
 	}
 	t, ok, err := times[ts.Event].at(d)
 	if err != nil || !ok {
@@ -712,11 +716,17 @@ func planTime(ts config.TimeSpec, d time.Time, loc *time.Location, times map[con
 // skippedClock says why a clock time of a plan is shown later than written:
 // the local clock skips it on that date (clocks set forward, as for summer
 // time), so clockOn moved it by the jump. It is "" otherwise.
-func skippedClock(ts config.TimeSpec, t time.Time, loc *time.Location) string {
+func skippedClock(ts config.TimeSpec, t time.Time, z *zoneCache) string {
 	if !ts.IsClock {
 		return ""
 	}
-	lt := t.In(loc)
+	// the clock shown, to the minute, from the zone's cached offset
+	u := t.Unix()
+	_, off := z.at(u)
+	if time.Duration(daySeconds(u+off)/60)*time.Minute == ts.Clock {
+		return ""
+	}
+	lt := t.In(z.loc)
 	shown := time.Duration(lt.Hour())*time.Hour + time.Duration(lt.Minute())*time.Minute
 	if shown == ts.Clock {
 		return ""

@@ -78,3 +78,49 @@ func TestAppendHM(t *testing.T) {
 		}
 	}
 }
+
+// TestAppendStamp: a plan's anchor instant, written from the zone cache,
+// reads as the standard library's Format writes it ("Mon 2 Jan 2006 15:04
+// MST", the clock cut to the minute), in zones with offsets of half and
+// three quarters of an hour, numeric abbreviations ("-03") and clocks that
+// skip midnight, before 1970 and after, on both sides of their changes.
+func TestAppendStamp(t *testing.T) {
+	const layout = "Mon 2 Jan 2006 15:04 MST"
+	for _, name := range []string{"Europe/Vienna", "America/Santiago", "America/Havana", "Asia/Kolkata",
+		"Pacific/Chatham", "Australia/Lord_Howe", "Arctic/Longyearbyen", "UTC"} {
+		loc, err := time.LoadLocation(name)
+		if err != nil {
+			t.Fatal(err)
+		}
+		z := newZoneCache(loc)
+		n := 0
+		for u := int64(-3_000_000_000); u < 5_000_000_000; u += 7_777_777 {
+			for _, d := range []time.Duration{0, 59*time.Second + 999*time.Millisecond, 17 * time.Hour} {
+				at := time.Unix(u, 0).Add(d)
+				got := string(z.appendStamp([]byte("x"), at))
+				if want := "x" + at.In(loc).Format(layout); got != want {
+					t.Fatalf("%s: appendStamp(%v) = %q, want %q", name, at, got, want)
+				}
+				n++
+			}
+		}
+		// around each change of the clocks from 2026 to 2029
+		for at := time.Date(2026, 1, 1, 0, 0, 0, 0, loc); at.Year() < 2030; {
+			_, end := at.ZoneBounds()
+			if end.IsZero() {
+				break
+			}
+			for _, d := range []time.Duration{-time.Hour, -time.Second, 0, time.Second, 30 * time.Minute, time.Hour} {
+				x := end.Add(d)
+				if got, want := string(z.appendStamp(nil, x)), x.In(loc).Format(layout); got != want {
+					t.Fatalf("%s: appendStamp(%v) = %q, want %q", name, x, got, want)
+				}
+				n++
+			}
+			at = end
+		}
+		if n < 3000 {
+			t.Fatalf("%s: %d instants", name, n)
+		}
+	}
+}

@@ -104,6 +104,27 @@ func (z *zoneCache) appendClock(b []byte, t time.Time) []byte {
 	return appendClockZone(b, s/3600, s/60%60, s%60, name)
 }
 
+// appendStamp appends t as t.In(z.loc).Format("Mon 2 Jan 2006 15:04 MST")
+// writes it (the clock to the minute, cut, not rounded), the zone looked
+// up in z: "Sat 9 Jan 2027 17:31 CET".
+func (z *zoneCache) appendStamp(b []byte, t time.Time) []byte {
+	u := t.Unix()
+	name, off := z.at(u)
+	days := floorDiv(u+off, secondsPerDay)
+	d := time.Unix(days*secondsPerDay, 0).UTC()
+	y, m, day := d.Date()
+	if name == "" || y < 1000 || y > 9999 {
+		return t.In(z.loc).AppendFormat(b, "Mon 2 Jan 2006 15:04 MST")
+	}
+	b = append(append(b, d.Weekday().String()[:3]...), ' ')
+	b = append(append(strconv.AppendInt(b, int64(day), 10), ' '), m.String()[:3]...)
+	b = strconv.AppendInt(append(b, ' '), int64(y), 10)
+	s := daySeconds(u + off)
+	h, min := s/3600, s/60%60
+	b = append(b, ' ', byte('0'+h/10), byte('0'+h%10), ':', byte('0'+min/10), byte('0'+min%10), ' ')
+	return append(b, name...)
+}
+
 // appendDayMark appends DayMark(t, d, z.loc) to b.
 func (z *zoneCache) appendDayMark(b []byte, t, d time.Time) []byte {
 	return appendDays(b, z.dayOf(UnixSecond(t))-floorDiv(d.Unix(), secondsPerDay))

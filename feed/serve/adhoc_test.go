@@ -774,3 +774,31 @@ func TestAdhocBuildsAtOnce(t *testing.T) {
 		t.Errorf("at most %d builds at once, the waiting ones started in the order %v; want 2 and [12 13] (first come, first served)", most.Load(), order)
 	}
 }
+
+// A build that gets its slot first lets the goroutines queued on its
+// processor run (net/http's reader of the request's connection is one),
+// instead of keeping them waiting for milliseconds: with one processor, a
+// goroutine started just before has run when adhocSlot returns (nearly
+// always: now and then the scheduler takes the yielding goroutine back
+// first, to be fair to its global queue).
+func TestAdhocSlotLetsQueuedGoroutinesRun(t *testing.T) {
+	defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(1))
+	s, _ := newTestServer(t, Options{Adhoc: adhocICS})
+	const tries = 40
+	ran := 0
+	for range tries {
+		var done atomic.Bool
+		go done.Store(true) // queued on this processor, as the reader is
+		_, release, err := s.adhocSlot(t.Context())
+		if err != nil {
+			t.Fatal(err)
+		}
+		if done.Load() {
+			ran++
+		}
+		release()
+	}
+	if ran < tries*3/4 {
+		t.Errorf("a goroutine queued before a build had run when the build got its slot in %d of %d tries, want nearly all", ran, tries)
+	}
+}

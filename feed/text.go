@@ -65,9 +65,15 @@ func newZoneCache(loc *time.Location) *zoneCache {
 // at returns the zone's abbreviation and offset (seconds east of UTC) at
 // the Unix second u.
 func (z *zoneCache) at(u int64) (string, int64) {
-	if u >= z.from && u < z.to {
-		return z.name, z.off
+	if u < z.from || u >= z.to {
+		z.lookup(u)
 	}
+	return z.name, z.off
+}
+
+// lookup caches the zone's period of the Unix second u, for at: at itself,
+// without it, is small enough to be written in place where it is called.
+func (z *zoneCache) lookup(u int64) {
 	lt := time.Unix(u, 0).In(z.loc)
 	name, off := lt.Zone()
 	from, to := lt.ZoneBounds()
@@ -78,7 +84,6 @@ func (z *zoneCache) at(u int64) (string, int64) {
 	if !to.IsZero() {
 		z.to = to.Unix()
 	}
-	return z.name, z.off
 }
 
 // day is the number of days since 1970-01-01 of the local date of t.

@@ -241,11 +241,16 @@ func TestHistogramScrapeIsOneSnapshot(t *testing.T) {
 		}
 	}
 	stop := make(chan struct{})
-	var wg sync.WaitGroup
+	var wg, started sync.WaitGroup
 	for _, h := range []*histogram{plain.histogram, labelled.WithLabelValues("feed"), plain.histogram} {
-		untilStopped(&wg, stop, func() bool { h.Observe(v); return true })
+		started.Add(1)
+		var first sync.Once
+		untilStopped(&wg, stop, func() bool { h.Observe(v); first.Do(started.Done); return true })
 	}
 	defer func() { close(stop); wg.Wait() }()
+	// Scrape only once every observer runs: with a single processor the
+	// scrapes could otherwise all come before the first observation.
+	started.Wait()
 	line := regexp.MustCompile(`(?m)^(test_\w+?)_(bucket|sum|count)(?:\{(?:route="feed",?)?(?:le="([^"]+)")?\})? (\S+)$`)
 	var seen float64
 	for range 300 {

@@ -208,11 +208,13 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 		w.text = textBuffers.get(days * textPerEntry)
 	}
 	w.spans = textSpans.get(days + days/8) // a kind's entries: flushText empties it after each
+	w.dates, w.firstDay = dateTexts.get(days)[:days], col.first.Unix()/secondsPerDay
 	defer func() {
 		if !keepText {
 			textBuffers.put(w.text)
 		}
 		textSpans.put(w.spans)
+		dateTexts.put(w.dates)
 	}()
 	if err := col.prepare(altitudes(col.p.Observer, specs)...); err != nil {
 		return nil, nil, err
@@ -666,6 +668,42 @@ type entryWriter struct {
 	// clockOn, when set, finds the plans' clock times on their dates
 	// (collector.clockOnDay, from its midnights)
 	clockOn *collector
+
+	// dates are the texts of the window's dates in the UIDs' keys, from
+	// the date firstDay (days since 1970-01-01), each written when first
+	// asked (see appendKeyDate); empty when the writer has none.
+	dates    []dateText
+	firstDay int64
+}
+
+// dateText is a date as appendDate writes it, "2026-11-03"; all zero
+// until it is written.
+type dateText [len(time.DateOnly)]byte
+
+// dateTexts holds the entry writers' tables of date texts (about 4 kB
+// for a 400-day window).
+var dateTexts slicePool[dateText]
+
+// appendKeyDate appends the date d (00:00 UTC) as appendDate writes it,
+// from the window's table of date texts when d is in it: each of a
+// feed's kinds names every date of the window in its UIDs' keys, and the
+// civil date of an instant is the costly part of writing one.
+func (w *entryWriter) appendKeyDate(b []byte, d time.Time) []byte {
+	u := d.Unix()
+	if i := u/secondsPerDay - w.firstDay; i >= 0 && i < int64(len(w.dates)) && u%secondsPerDay == 0 && d.Nanosecond() == 0 {
+		t := &w.dates[i]
+		if t[0] == 0 {
+			// a date of four-digit year fills the array in place;
+			// any other (longer: part of it may be in the array) is
+			// written afresh each time
+			if s := appendDate(t[:0], d); len(s) != len(t) {
+				*t = dateText{}
+				return appendDate(b, d)
+			}
+		}
+		return append(b, t[:]...)
+	}
+	return appendDate(b, d)
 }
 
 // kindName returns k.String(), written once per feed for the kinds with a
@@ -1041,7 +1079,7 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 		key = append(append(append(append(w.buf[:0], w.feedID...), '|'), kind...), '|')
 		key = append(append(key, offsetText(offset)...), '|')
 	}
-	key = append(appendDate(key, e.Date), '|')
+	key = append(w.appendKeyDate(key, e.Date), '|')
 	key = append(append(append(key, e.Part...), '|'), dirString(e.Direction)...)
 	if st.counted {
 		n := st.occurrence(e.Date.Unix()/secondsPerDay, e.Part, e.Direction)

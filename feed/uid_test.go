@@ -144,3 +144,31 @@ func BenchmarkUIDHash(b *testing.B) {
 		dst = w.appendHash(dst[:0], key)
 	}
 }
+
+// TestKeyDates: the UIDs' keys name a date as appendDate (time.DateOnly)
+// does, from the window's table or without it, for dates in the window,
+// outside it, before 1970 and of years that are not four digits.
+func TestKeyDates(t *testing.T) {
+	first := time.Date(1969, 12, 20, 0, 0, 0, 0, time.UTC)
+	w := entryWriter{dates: make([]dateText, 40), firstDay: first.Unix() / secondsPerDay}
+	var dates []time.Time
+	for i := -3; i < 45; i++ {
+		dates = append(dates, first.AddDate(0, 0, i))
+	}
+	dates = append(dates, first.Add(time.Hour), time.Date(-1, 6, 1, 0, 0, 0, 0, time.UTC), time.Date(10000, 1, 2, 0, 0, 0, 0, time.UTC))
+	for range 2 { // the second time from the filled table
+		for _, d := range dates {
+			if got, want := string(w.appendKeyDate([]byte("k|"), d)), "k|"+d.Format(time.DateOnly); got != want {
+				t.Fatalf("%v: %q, want %q", d, got, want)
+			}
+		}
+	}
+	// a year of five digits in the table's place
+	w = entryWriter{dates: make([]dateText, 3), firstDay: time.Date(10000, 1, 1, 0, 0, 0, 0, time.UTC).Unix() / secondsPerDay}
+	for range 2 {
+		d := time.Date(10000, 1, 2, 0, 0, 0, 0, time.UTC)
+		if got, want := string(w.appendKeyDate(nil, d)), d.Format(time.DateOnly); got != want {
+			t.Fatalf("%v: %q, want %q", d, got, want)
+		}
+	}
+}

@@ -6,6 +6,7 @@ import (
 	"time"
 	"unicode"
 	"unicode/utf8"
+	"unsafe"
 
 	ics "github.com/arran4/golang-ical"
 )
@@ -117,7 +118,10 @@ type titleLine struct {
 func (w *writer) summaryLine(b []byte, title string) []byte {
 	l := &w.lines
 	for i := range l.summaries {
-		if m := &l.summaries[i]; m.line != nil && m.title == title {
+		// the same string as a rule (a kind's entries share their
+		// title's), told without comparing the octets
+		if m := &l.summaries[i]; m.line != nil && len(m.title) == len(title) &&
+			(unsafe.StringData(m.title) == unsafe.StringData(title) || m.title == title) {
 			return append(b, m.line...)
 		}
 	}

@@ -59,6 +59,16 @@ type planDate struct {
 	anchored bool
 	kind     config.Kind
 	at       time.Time
+	// also are the other events of the rule that fall to the same date
+	// ("saturday after moon-phases": a first quarter on a Saturday and the
+	// full moon on the Friday after), in the order of their instants
+	also []planAnchor
+}
+
+// planAnchor is one more event of a plan's date rule on a date.
+type planAnchor struct {
+	kind config.Kind
+	at   time.Time
 }
 
 // feedEntries computes the entries of a feed's kinds and plans on the local
@@ -502,11 +512,12 @@ func (sky *Sky) planDates(ctx context.Context, p Place, r config.DateRule, first
 	}
 	slices.SortStableFunc(evs, func(a, b anchor) int { return a.at.Compare(b.at) })
 	out = make([]planDate, 0, len(evs))
-	// A date is listed once, for the first of its anchors: two anchors give
-	// one date when a weekday rule takes them to the same weekday ("saturday
+	// A date is listed once, for all of its anchors: two anchors give one
+	// date when a weekday rule takes them to the same weekday ("saturday
 	// after moon-phases": a first quarter on a Saturday, the full moon on
-	// the Friday after). taken marks the dates listed, by day of the window,
-	// so that the check costs the same whatever the order of the dates.
+	// the Friday after), and the entry names both. taken marks the dates
+	// listed, by day of the window, so that the check costs the same
+	// whatever the order of the dates.
 	taken := make([]uint64, daysBetween(first, last)/64+1)
 	for _, e := range evs {
 		d := e.day
@@ -518,6 +529,12 @@ func (sky *Sky) planDates(ctx context.Context, p Place, r config.DateRule, first
 		}
 		i := daysBetween(first, d)
 		if taken[i/64]&(1<<(i%64)) != 0 {
+			for j := len(out) - 1; j >= 0; j-- { // the date's entry: mostly the last one
+				if out[j].date.Equal(d) {
+					out[j].also = append(out[j].also, planAnchor{e.kind, e.at})
+					break
+				}
+			}
 			continue
 		}
 		taken[i/64] |= 1 << (i % 64)
@@ -611,6 +628,10 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 	if pd.anchored {
 		b = append(append(append(append(b, "Date: "...), pt.rule...), " ("...), pt.anchorName(pd.kind)...)
 		b = z.appendStamp(append(b, ' '), pd.at)
+		for _, a := range pd.also {
+			b = append(append(b, "; "...), pt.anchorName(a.kind)...)
+			b = z.appendStamp(append(b, ' '), a.at)
+		}
 		b = append(b, ").\n"...)
 	}
 	allDay := func() {

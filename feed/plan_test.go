@@ -2,6 +2,7 @@ package feed
 
 import (
 	"context"
+	"regexp"
 	"strings"
 	"testing"
 	"time"
@@ -87,8 +88,7 @@ func TestWeekdayRules(t *testing.T) {
 }
 
 // Two anchors of a weekday rule can fall to the same weekday, and the date
-// is then listed once, for the first of them (the duplicates planDates
-// leaves out). USNO moon-phase data (testdata/reference/moon-phases.csv):
+// is then listed once, and its entry names both, in the order they happen. USNO moon-phase data (testdata/reference/moon-phases.csv):
 // new moon 2024-11-01 12:47 UT (mp-0105), first quarter 2024-11-09 05:55
 // UT (mp-0106), full moon 2024-11-15 21:28 UT (mp-0107); London keeps GMT
 // (UT) in November, and 9 November 2024 was a Saturday (Gregorian
@@ -109,9 +109,14 @@ func TestWeekdayRuleTwoAnchorsOneDate(t *testing.T) {
 			t.Errorf("%s: dates %q, want %q", tc.rule, got, tc.want)
 			continue
 		}
-		// the entry of the shared date names its first anchor
-		if d := es[len(es)-1].Description; !strings.Contains(d, "first quarter Sat 9 Nov 2024 05:5") {
-			t.Errorf("%s: the entry of two anchors names\n%s\nwant the first quarter", tc.rule, d)
+		// the entry of the shared date names both of its anchors
+		if d := es[len(es)-1].Description; !regexp.MustCompile(
+			`\(first quarter Sat 9 Nov 2024 05:5\d GMT; full moon Fri 15 Nov 2024 21:2\d GMT\)\.\n`).MatchString(d) {
+			t.Errorf("%s: the entry of two anchors says\n%s\nwant the first quarter and the full moon", tc.rule, d)
+		}
+		// and the entry of a date with one anchor only that one
+		if d := es[0].Description; len(es) > 1 && (!strings.Contains(d, "(new moon Fri 1 Nov 2024 12:4") || strings.Contains(d, ";")) {
+			t.Errorf("%s: the entry of one anchor says\n%s\nwant the new moon alone", tc.rule, d)
 		}
 	}
 }

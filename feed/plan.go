@@ -797,14 +797,21 @@ func plainName(k config.Kind) string {
 	return k.String()
 }
 
-// ruleText says a date rule in words: "the Saturday nearest the new moon".
+// ruleText says a date rule in words: "the Saturday nearest the new moon",
+// "the date of a Moon phase".
 func ruleText(r config.DateRule) string {
-	ev := inText(r.Event)
+	ev := "the " + inText(r.Event)
+	switch r.Event.Name { // a group: one of its kinds
+	case "moon-phases":
+		ev = "a Moon phase"
+	case "seasons":
+		ev = "an equinox or solstice"
+	}
 	switch r.Type {
 	case config.RuleWeekdayOf:
-		return fmt.Sprintf("the %s %s the %s", r.Weekday, r.Relation, ev)
+		return fmt.Sprintf("the %s %s %s", r.Weekday, r.Relation, ev)
 	case config.RuleEvent:
-		return "the date of the " + ev
+		return "the date of " + ev
 	}
 	return ""
 }

@@ -121,6 +121,29 @@ func TestWeekdayRuleTwoAnchorsOneDate(t *testing.T) {
 	}
 }
 
+// A rule on a group of kinds names one of its kinds in words, not the
+// group's configuration name: "the Saturday after a Moon phase", "the date
+// of an equinox or solstice"; a rule on one kind names it with "the".
+// USNO (testdata/reference/moon-phases.csv, mp-0106): first quarter
+// 2024-11-09 05:55 UT; USNO Earth's seasons (testdata/reference/seasons.csv,
+// december-solstice-2024): December solstice 2024-12-21
+// 09:20 UT.
+func TestRuleTextGroups(t *testing.T) {
+	london := site(t, "london", 51.5, -0.13, "Europe/London")
+	for _, tc := range []struct{ rule, first, last, want string }{
+		{"saturday after moon-phases", "2024-11-16", "2024-11-16", "Date: the Saturday after a Moon phase (first quarter Sat 9 Nov 2024 05:5"},
+		{"moon-phases", "2024-11-09", "2024-11-09", "Date: the date of a Moon phase (first quarter Sat 9 Nov 2024 05:5"},
+		{"seasons", "2024-12-21", "2024-12-21", "Date: the date of an equinox or solstice (December solstice Sat 21 Dec 2024 09:2"},
+		{"sunday nearest seasons", "2024-12-22", "2024-12-22", "Date: the Sunday nearest an equinox or solstice (December solstice"},
+		{"saturday after first-quarter", "2024-11-16", "2024-11-16", "Date: the Saturday after the first quarter (first quarter Sat 9 Nov"},
+	} {
+		es := planEntries(t, london, tc.first, tc.last, config.Plan{Title: "Night", Date: tc.rule})
+		if len(es) != 1 || !strings.HasPrefix(es[0].Description, tc.want) {
+			t.Errorf("%s: %d entries, %+v; want one whose description starts %q", tc.rule, len(es), es, tc.want)
+		}
+	}
+}
+
 // TestPlanDates checks the other date rules over a year: every day,
 // every <weekday>, every MM-DD (29 February only in leap years), one date,
 // and each date of an event kind.

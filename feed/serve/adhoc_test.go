@@ -716,6 +716,19 @@ func TestWarmAdhoc(t *testing.T) {
 	if r := get(t, s.Handler(), "GET", "/at.ics?"+warmQuery); r.StatusCode != 200 || calls.Load() != 1 {
 		t.Errorf("the warm-up's feed: status %d after %d builds, want 200 from the cache", r.StatusCode, calls.Load())
 	}
+	// the warm-up is no request's build: /metrics counts it neither as a
+	// build nor as a miss; a request's build counts once in each
+	builds := func() string {
+		out := body(t, get(t, s.Handler(), "GET", "/metrics"))
+		return strings.Join(regexp.MustCompile(`(?m)^(heliocal_adhoc_build_duration_seconds_(?:count|bucket\{le="\+Inf"\})|heliocal_adhoc_cache_total\{result="miss"\}) \d+$`).FindAllString(out, -1), ", ")
+	}
+	if got, want := builds(), `heliocal_adhoc_build_duration_seconds_bucket{le="+Inf"} 0, heliocal_adhoc_build_duration_seconds_count 0, heliocal_adhoc_cache_total{result="miss"} 0`; got != want {
+		t.Errorf("after the warm-up and its feed from the cache, /metrics says %s; want %s", got, want)
+	}
+	get(t, s.Handler(), "GET", "/at.ics?lat=1&lon=0&tz=UTC")
+	if got, want := builds(), `heliocal_adhoc_build_duration_seconds_bucket{le="+Inf"} 1, heliocal_adhoc_build_duration_seconds_count 1, heliocal_adhoc_cache_total{result="miss"} 1`; got != want {
+		t.Errorf("after a request's build, /metrics says %s; want %s", got, want)
+	}
 
 	for _, fn := range []AdhocFunc{
 		func(context.Context, AdhocQuery, io.Writer) error { return errors.New("broken") },

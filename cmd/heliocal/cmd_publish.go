@@ -120,7 +120,7 @@ func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Tim
 		for _, n := range zoneNotes(cfg, now) {
 			fmt.Fprintln(g.stderr, "heliocal: "+n)
 		}
-		fmt.Fprintf(g.stderr, "heliocal: publishing %d feeds from %s to %s\n", len(srcs), src, out)
+		fmt.Fprintf(g.stderr, "heliocal: publishing %s from %s to %s\n", publishingWhat(srcs, shard), src, out)
 		opts.Progress = publish.NewProgress(g.stderr)
 	}
 	st, err := publish.Publish(ctx, srcs, opts, w)
@@ -136,6 +136,27 @@ func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Tim
 		fmt.Fprintln(g.stderr, "warning: "+w.text) // as check writes them
 	}
 	return nil
+}
+
+// publishingWhat says which feeds a publish writes: "3 feeds", or for a
+// shard "shard 0/2: 1 feed of 3".
+func publishingWhat(srcs []publish.Source, shard publish.Shard) string {
+	feeds := func(n int) string {
+		if n == 1 {
+			return "1 feed"
+		}
+		return fmt.Sprintf("%d feeds", n)
+	}
+	if !shard.Sharded() {
+		return feeds(len(srcs))
+	}
+	n := 0
+	for _, s := range srcs {
+		if shard.Has(s.ID) {
+			n++
+		}
+	}
+	return fmt.Sprintf("shard %s: %s of %d", shard, feeds(n), len(srcs))
 }
 
 // configDigest fingerprints what shapes the published files: the sites, the

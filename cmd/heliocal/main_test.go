@@ -7,6 +7,8 @@ import (
 	"flag"
 	"os"
 	"path/filepath"
+	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -325,5 +327,33 @@ func TestPublishRefusesMixedShards(t *testing.T) {
 	code, _, errOut = runCLI(t, "publish", "-q", "--out", dir, "--lock-wait", "0s")
 	if code != exitInput || !strings.Contains(errOut, "--lock-wait: 0s") {
 		t.Errorf("--lock-wait 0s: exit %d, %q", code, errOut)
+	}
+}
+
+// The line a publish starts with counts the feeds it writes: a shard's own
+// feeds, as its summary does, out of all of them; one feed is "1 feed".
+func TestPublishStartLineCountsShard(t *testing.T) {
+	started := regexp.MustCompile(`(?m)^heliocal: publishing shard (\d)/2: (\d+) feeds? of (\d+) from built-in demo to `)
+	summary := regexp.MustCompile(`(?m)^published shard (\d)/2: (\d+) feeds? \(`)
+	total := 0
+	for _, shard := range []string{"0/2", "1/2"} {
+		code, _, errOut := runCLI(t, "publish", "--out", t.TempDir(), "--shard", shard)
+		s, w := started.FindStringSubmatch(errOut), summary.FindStringSubmatch(errOut)
+		if code != 0 || s == nil || w == nil || s[1] != w[1] || s[2] != w[2] {
+			t.Fatalf("--shard %s: exit %d, stderr\n%s\nwant the start line to count the shard's feeds as the summary does", shard, code, errOut)
+		}
+		n, _ := strconv.Atoi(s[2])
+		total += n
+		if all, _ := strconv.Atoi(s[3]); all != 18 { // the demo's feeds (`heliocal check`)
+			t.Errorf("--shard %s: %s feeds in all, want 18", shard, s[3])
+		}
+	}
+	if total != 18 {
+		t.Errorf("the two shards start %d feeds, want the demo's 18", total)
+	}
+	one := writeConfig(t, "sites:\n  - {id: plot, latitude: 48.2, longitude: 16.4, timezone: Europe/Vienna}\nfeeds:\n  - {id: plot-sun, site: plot, kinds: [sunrise]}\n")
+	code, _, errOut := runCLI(t, "--config", one, "publish", "--out", t.TempDir())
+	if code != 0 || !strings.Contains(errOut, "heliocal: publishing 1 feed from "+one+" to ") {
+		t.Errorf("one feed: exit %d, stderr\n%s\nwant \"publishing 1 feed from …\"", code, errOut)
 	}
 }

@@ -3,6 +3,7 @@ package main
 import (
 	"context"
 	"fmt"
+	"strings"
 	"sync"
 	"time"
 
@@ -41,7 +42,7 @@ func lampLimitWarnings(f *config.Feed, cal *feed.Calendar) []lampWarning {
 				continue
 			}
 			var n int
-			var first, last time.Time
+			var stretches [][2]time.Time // runs of consecutive dates: first, last
 			for i := range cal.Entries {
 				e := &cal.Entries[i]
 				if e.Kind != name || e.AllDay || e.Facts.Note || e.Facts.Part != lim.part {
@@ -62,19 +63,17 @@ func lampLimitWarnings(f *config.Feed, cal *feed.Calendar) []lampWarning {
 				if evening && of <= clock || !evening && of >= clock {
 					continue
 				}
-				if n == 0 {
-					first = e.Date
+				if k := len(stretches) - 1; k >= 0 && e.Date.Sub(stretches[k][1]) <= 24*time.Hour {
+					stretches[k][1] = e.Date
+				} else {
+					stretches = append(stretches, [2]time.Time{e.Date, e.Date})
 				}
-				last = e.Date
 				n++
 			}
 			if n == 0 {
 				continue
 			}
-			dates := fmt.Sprintf("on %s", first.Format("2 Jan 2006"))
-			if n > 1 {
-				dates = fmt.Sprintf("on %d dates between %s and %s", n, first.Format("2 Jan 2006"), last.Format("2 Jan 2006"))
-			}
+			dates := limitDates(n, stretches)
 			w := lampWarning{limit: fmt.Sprintf("%s|%s|%s=%s", f.ID, k.Kind, lim.key, lim.value)}
 			if evening {
 				w.text = fmt.Sprintf("feed %q: %s latest_off %q comes before the evening lamps start %s, so it does not limit them: they run until the target is reached; for no evening lamps on those dates, use months: or lamps: morning",
@@ -87,6 +86,43 @@ func lampLimitWarnings(f *config.Feed, cal *feed.Calendar) []lampWarning {
 		}
 	}
 	return out
+}
+
+// limitDates says on which dates a limit does nothing: "on 7 Nov 2027",
+// "on 238 dates between 14 Mar 2027 and 6 Nov 2027" (every date between),
+// and for dates in two or three stretches each of them, "on 6 dates in 2
+// stretches: 18–20 Nov 2026 and 18–20 Nov 2027" ("on 2 dates: 27 Mar 2027
+// and 10 Sep 2027"), which "between" the first and the last would make
+// seem a year of dates.
+func limitDates(n int, stretches [][2]time.Time) string {
+	first, last := stretches[0][0], stretches[len(stretches)-1][1]
+	switch {
+	case n == 1:
+		return "on " + first.Format("2 Jan 2006")
+	case len(stretches) == 1:
+		return fmt.Sprintf("on %d dates between %s and %s", n, first.Format("2 Jan 2006"), last.Format("2 Jan 2006"))
+	case len(stretches) > 3:
+		return fmt.Sprintf("on %d dates in %d stretches between %s and %s", n, len(stretches), first.Format("2 Jan 2006"), last.Format("2 Jan 2006"))
+	}
+	parts := make([]string, len(stretches))
+	for i, st := range stretches {
+		a, b := st[0], st[1]
+		switch {
+		case a.Equal(b):
+			parts[i] = a.Format("2 Jan 2006")
+		case a.Year() == b.Year() && a.Month() == b.Month():
+			parts[i] = a.Format("2") + "–" + b.Format("2 Jan 2006")
+		case a.Year() == b.Year():
+			parts[i] = a.Format("2 Jan") + "–" + b.Format("2 Jan 2006")
+		default:
+			parts[i] = a.Format("2 Jan 2006") + "–" + b.Format("2 Jan 2006")
+		}
+	}
+	list := strings.Join(parts[:len(parts)-1], ", ") + " and " + parts[len(parts)-1]
+	if n == len(stretches) { // single dates
+		return fmt.Sprintf("on %d dates: %s", n, list)
+	}
+	return fmt.Sprintf("on %d dates in %d stretches: %s", n, len(stretches), list)
 }
 
 // lampWarning is one warning of lampLimitWarnings: its words, and the limit

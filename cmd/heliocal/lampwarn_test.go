@@ -89,6 +89,49 @@ func TestLampLimitWarning(t *testing.T) {
 	}
 }
 
+// Dates in a few stretches are named stretch by stretch, not as "between"
+// the first and the last, which would make them seem the whole of the
+// months between. Longyearbyen, 78.22° N 15.63° E (PyEphem 4.1.4, upper
+// limb, 34′ refraction, no elevation): the natural day is under 16 h up to
+// 2 Apr 2027 (15 h 52 min) and again from 10 Sep (15 h 52 min; 16 h 09 min
+// on 3 Apr, 16 h 09 min on 9 Sep). Sunset comes after 20:00 from 28 Mar
+// (20:20:02 CEST, the first day of summer time; 27 Mar 19:12:22 CET) and
+// until 15 Sep (20:05:56; 16 Sep 19:57:52). Sunrise is before 07:00 from
+// 12 Mar (06:56), and before 05:00 on 27 Mar (04:58:07 CET) and 10 Sep
+// (04:55:56 CEST) only, among the dates that need lamps.
+func TestLampLimitWarningStretches(t *testing.T) {
+	const polar = `sites:
+  - {id: isfjord-shed, latitude: 78.22, longitude: 15.63, timezone: Arctic/Longyearbyen}
+feeds:
+  - id: polar-lamps
+    site: isfjord-shed
+    days_back: 0
+    days_ahead: 364
+    kinds:
+      - {kind: "lighting:16h", lamps: both, latest_off: "20:00", earliest_on: "07:00"}
+  - id: dawn-lamps
+    site: isfjord-shed
+    days_back: 0
+    days_ahead: 364
+    kinds:
+      - {kind: "lighting:16h", lamps: both, earliest_on: "05:00", latest_off: "23:00"}
+`
+	got := checkWarnings(t, polar, havanaLampsNow)
+	want := []string{
+		`feed "polar-lamps": lighting:16h latest_off "20:00" comes before the evening lamps start on 12 dates in 2 stretches: 28 Mar–2 Apr 2027 and 10–15 Sep 2027`,
+		`feed "polar-lamps": lighting:16h earliest_on "07:00" comes after the morning lamps end on 39 dates in 2 stretches: 12 Mar–2 Apr 2027 and 10–26 Sep 2027`,
+		`feed "dawn-lamps": lighting:16h earliest_on "05:00" comes after the morning lamps end on 2 dates: 27 Mar 2027 and 10 Sep 2027`,
+	}
+	if len(got) != len(want) {
+		t.Fatalf("warnings:\n%s\nwant %d", strings.Join(got, "\n"), len(want))
+	}
+	for i := range want {
+		if !strings.HasPrefix(got[i], want[i]+", so it does not limit them: ") {
+			t.Errorf("warning %d:\n%s\nwant it to start\n%s", i, got[i], want[i])
+		}
+	}
+}
+
 // publish prints check's lamp warnings, in check's words, on standard
 // error where it prints its other warnings, with --quiet too, and still
 // exits 0 (the feeds are published).

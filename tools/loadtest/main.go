@@ -283,8 +283,11 @@ type result struct {
 	clientCPU time.Duration // CPU time loadtest itself used
 	clientGC  uint64        // collections of loadtest's own heap during the run
 	serverGC  int           // collections of the server's heap during the run (-1: unknown)
-	start     time.Time     // when the run started
-	samples   []sample      // every request, for the slowest
+	// the server's ad-hoc cache hits and misses during the run (-1: unknown)
+	cacheHits, cacheMisses int
+	wantMisses             bool      // every request is meant to miss the cache (a new place each)
+	start                  time.Time // when the run started
+	samples                []sample  // every request, for the slowest
 }
 
 // sample is one request: its number in the run, when it was sent and how
@@ -349,6 +352,12 @@ func (r *result) print() {
 	}
 	if r.serverGC >= 0 {
 		fmt.Printf("  server GC   %d collections during the run\n", r.serverGC)
+	}
+	if r.cacheHits > 0 || r.cacheMisses > 0 {
+		fmt.Printf("  server cache %d misses, %d hits (ad-hoc feeds)\n", r.cacheMisses, r.cacheHits)
+		if r.wantMisses && r.cacheHits > 0 {
+			fmt.Printf("  warning     %d requests were answered from the server's cache, which had these places already (an earlier run?): the figures above are not of builds; restart the server or start elsewhere with -lat\n", r.cacheHits)
+		}
 	}
 	if r.clientCPU > 0 {
 		fmt.Printf("  client CPU  %v per request, %d collections of its own heap\n", r.clientCPU/time.Duration(n), r.clientGC)
@@ -440,27 +449,48 @@ func gcCycles() uint64 {
 	return s[0].Value.Uint64()
 }
 
-// serverGCCount reads the server's collections so far from its /metrics
-// (go_gc_duration_seconds_count); ok is false when it has none.
-func serverGCCount(ctx context.Context, host string) (n int, ok bool) {
+// serverCounters are counters of the server's /metrics: its collections
+// so far (go_gc_duration_seconds_count) and, from a heliocal server, its
+// ad-hoc cache's hits and misses (heliocal_adhoc_cache_total).
+type serverCounters struct {
+	gc, hits, misses int
+	cache            bool // the cache's counters were there
+}
+
+// serverCounts reads serverCounters from the server's /metrics; ok is false
+// when it has none, or no collection count.
+func serverCounts(ctx context.Context, host string) (c serverCounters, ok bool) {
 	req, _ := http.NewRequestWithContext(ctx, "GET", "http://"+host+"/metrics", nil)
 	resp, err := newClient().Do(req)
 	if err != nil {
-		return 0, false
+		return c, false
 	}
 	defer resp.Body.Close()
 	if resp.StatusCode != 200 {
-		return 0, false
+		return c, false
 	}
 	sc := bufio.NewScanner(resp.Body)
 	sc.Buffer(nil, 1<<20)
+	var hit, miss bool
 	for sc.Scan() {
-		if v, found := strings.CutPrefix(sc.Text(), "go_gc_duration_seconds_count "); found {
-			f, err := strconv.ParseFloat(strings.TrimSpace(v), 64)
-			return int(f), err == nil
+		line := sc.Text()
+		for _, m := range []struct {
+			prefix string
+			dst    *int
+			found  *bool
+		}{
+			{"go_gc_duration_seconds_count ", &c.gc, &ok},
+			{`heliocal_adhoc_cache_total{result="hit"} `, &c.hits, &hit},
+			{`heliocal_adhoc_cache_total{result="miss"} `, &c.misses, &miss},
+		} {
+			if v, found := strings.CutPrefix(line, m.prefix); found {
+				f, err := strconv.ParseFloat(strings.TrimSpace(v), 64)
+				*m.dst, *m.found = int(f), err == nil
+			}
 		}
 	}
-	return 0, false
+	c.cache = hit && miss
+	return c, ok
 }
 
 // writeSamplesFile writes every request of runs to path (see -samples).
@@ -536,13 +566,16 @@ func measureFeed(ctx context.Context, c config) ([]*result, error) {
 // This costs the client a fraction of what net/http.Client does, leaving
 // the shared CPUs to the server.
 func rawLoad(ctx context.Context, name string, u *url.URL, conns, n int, d time.Duration, request func(dst []byte, i int) []byte) *result {
-	gc0, gcOK := serverGCCount(ctx, u.Host)
+	c0, ok0 := serverCounts(ctx, u.Host)
 	runCtx, cancel := context.WithTimeout(ctx, d)
 	defer cancel()
 	r := rawRun(runCtx, name, u, conns, n, request)
-	r.serverGC = -1
-	if gc1, ok := serverGCCount(ctx, u.Host); ok && gcOK {
-		r.serverGC = gc1 - gc0
+	r.serverGC, r.cacheHits, r.cacheMisses = -1, -1, -1
+	if c1, ok := serverCounts(ctx, u.Host); ok && ok0 {
+		r.serverGC = c1.gc - c0.gc
+		if c0.cache && c1.cache {
+			r.cacheHits, r.cacheMisses = c1.hits-c0.hits, c1.misses-c0.misses
+		}
 	}
 	return r
 }
@@ -639,6 +672,7 @@ func measureAdhoc(ctx context.Context, c config) (*result, error) {
 		name = "ad-hoc feed, one repeated query (cache hit) → 200"
 	}
 	r := rawLoad(ctx, name, u, c.adhocConc, c.adhocRequests, c.duration, adhocRequest(u, c.lat, !c.adhocCached))
+	r.wantMisses = !c.adhocCached
 	r.print()
 	return r, nil
 }

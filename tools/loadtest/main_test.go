@@ -4,6 +4,7 @@ import (
 	"bufio"
 	"bytes"
 	"context"
+	"fmt"
 	"net/http"
 	"net/http/httptest"
 	"net/url"
@@ -184,25 +185,42 @@ func TestWriteSamples(t *testing.T) {
 	}
 }
 
-// The server's collections come from its /metrics; a server without one
-// gives none.
-func TestServerGCCount(t *testing.T) {
+// The server's collections, and a heliocal server's ad-hoc cache hits and
+// misses, come from its /metrics; a server without one gives none. A run
+// counts the cache's hits and misses during it, so that a run meant to
+// miss can say it did not (a server that had seen its places before).
+func TestServerCounts(t *testing.T) {
+	var served atomic.Int64
 	srv := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
-		if r.URL.Path != "/metrics" {
+		switch r.URL.Path {
+		case "/metrics":
+			n := served.Load()
+			fmt.Fprintf(w, "# HELP go_gc_duration_seconds x\ngo_gc_duration_seconds_sum 0.012\ngo_gc_duration_seconds_count 7\ngo_goroutines 9\n"+
+				"heliocal_adhoc_cache_total{result=\"hit\"} %d\nheliocal_adhoc_cache_total{result=\"miss\"} %d\n", 3+n/2, 5+(n+1)/2)
+		case "/at.ics":
+			served.Add(1)
+		default:
 			http.NotFound(w, r)
-			return
 		}
-		w.Write([]byte("# HELP go_gc_duration_seconds x\ngo_gc_duration_seconds_sum 0.012\ngo_gc_duration_seconds_count 7\ngo_goroutines 9\n"))
 	}))
 	defer srv.Close()
 	u, _ := url.Parse(srv.URL)
-	if n, ok := serverGCCount(context.Background(), u.Host); !ok || n != 7 {
-		t.Errorf("serverGCCount = %d, %v; want 7, true", n, ok)
+	if c, ok := serverCounts(context.Background(), u.Host); !ok || c != (serverCounters{gc: 7, hits: 3, misses: 5, cache: true}) {
+		t.Errorf("serverCounts = %+v, %v; want 7 collections, 3 hits, 5 misses, true", c, ok)
+	}
+	u, _ = url.Parse(srv.URL + "/at.ics?lon=1")
+	r := rawLoad(context.Background(), "test", u, 2, 40, 30*time.Second, adhocRequest(u, 10, true))
+	if r.serverGC != 0 || r.cacheHits != 20 || r.cacheMisses != 20 {
+		t.Errorf("a run of 40 requests, half of them hits: %d collections, %d hits, %d misses; want 0, 20, 20", r.serverGC, r.cacheHits, r.cacheMisses)
 	}
 	none := httptest.NewServer(http.NotFoundHandler())
 	defer none.Close()
 	u, _ = url.Parse(none.URL)
-	if n, ok := serverGCCount(context.Background(), u.Host); ok {
-		t.Errorf("serverGCCount without /metrics = %d, true; want false", n)
+	if c, ok := serverCounts(context.Background(), u.Host); ok {
+		t.Errorf("serverCounts without /metrics = %+v, true; want false", c)
+	}
+	u, _ = url.Parse(none.URL + "/at.ics?lon=1")
+	if r := rawLoad(context.Background(), "test", u, 1, 2, 30*time.Second, adhocRequest(u, 10, true)); r.serverGC != -1 || r.cacheHits != -1 || r.cacheMisses != -1 {
+		t.Errorf("without /metrics: %d collections, %d hits, %d misses; want -1 each (unknown)", r.serverGC, r.cacheHits, r.cacheMisses)
 	}
 }

@@ -133,6 +133,18 @@ func run() error {
 		}
 	}
 
+	// The samples file is created before any request, so that a path that
+	// cannot be written is said at once, not after the runs.
+	var samples *os.File
+	if c.samples != "" {
+		f, err := os.Create(c.samples)
+		if err != nil {
+			return badInput{fmt.Errorf("-samples %s: %w", c.samples, err)}
+		}
+		defer f.Close()
+		samples = f
+	}
+
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
 	defer stop()
 
@@ -164,8 +176,8 @@ func run() error {
 		}
 		runs = append(runs, r)
 	}
-	if c.samples != "" {
-		if err := writeSamplesFile(c.samples, runs); err != nil {
+	if samples != nil {
+		if err := writeSamplesFile(samples, runs); err != nil {
 			return fmt.Errorf("-samples %s: %w", c.samples, err)
 		}
 	}
@@ -493,12 +505,9 @@ func serverCounts(ctx context.Context, host string) (c serverCounters, ok bool) 
 	return c, ok
 }
 
-// writeSamplesFile writes every request of runs to path (see -samples).
-func writeSamplesFile(path string, runs []*result) error {
-	f, err := os.Create(path)
-	if err != nil {
-		return err
-	}
+// writeSamplesFile writes every request of runs to f, the -samples file, and
+// closes it.
+func writeSamplesFile(f *os.File, runs []*result) error {
 	w := bufio.NewWriter(f)
 	writeSamples(w, runs, serverStarted)
 	if err := w.Flush(); err != nil {

@@ -4,11 +4,14 @@ import (
 	"bufio"
 	"bytes"
 	"context"
+	"errors"
 	"fmt"
 	"net/http"
 	"net/http/httptest"
 	"net/url"
 	"os"
+	"os/exec"
+	"path/filepath"
 	"slices"
 	"strings"
 	"sync/atomic"
@@ -222,5 +225,31 @@ func TestServerCounts(t *testing.T) {
 	u, _ = url.Parse(none.URL + "/at.ics?lon=1")
 	if r := rawLoad(context.Background(), "test", u, 1, 2, 30*time.Second, adhocRequest(u, 10, true)); r.serverGC != -1 || r.cacheHits != -1 || r.cacheMisses != -1 {
 		t.Errorf("without /metrics: %d collections, %d hits, %d misses; want -1 each (unknown)", r.serverGC, r.cacheHits, r.cacheMisses)
+	}
+}
+
+// A -samples file that cannot be created is bad input (exit 2, naming the
+// flag and the path), said before any request is sent, not after the
+// runs. The command runs as a process of its own: this test binary, asked
+// to run main.
+func TestSamplesFileCheckedFirst(t *testing.T) {
+	if args := os.Getenv("LOADTEST_TEST_ARGS"); args != "" {
+		os.Args = append([]string{"loadtest"}, strings.Fields(args)...)
+		main()
+		os.Exit(0)
+	}
+	var requests atomic.Int64
+	srv := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) { requests.Add(1) }))
+	defer srv.Close()
+	bad := filepath.Join(t.TempDir(), "no-such-dir", "samples.tsv")
+	cmd := exec.Command(os.Args[0], "-test.run=^TestSamplesFileCheckedFirst$")
+	cmd.Env = append(os.Environ(), "LOADTEST_TEST_ARGS=-adhoc "+srv.URL+"/at.ics?lon=1 -adhoc-n 20 -samples "+bad)
+	out, err := cmd.CombinedOutput()
+	var exit *exec.ExitError
+	if !errors.As(err, &exit) || exit.ExitCode() != 2 || !strings.Contains(string(out), "-samples "+bad+": ") {
+		t.Errorf("exit %v, output\n%s\nwant exit 2 naming -samples and %s", err, out, bad)
+	}
+	if n := requests.Load(); n != 0 {
+		t.Errorf("%d requests sent before the error, want none", n)
 	}
 }

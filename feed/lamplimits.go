@@ -1,0 +1,175 @@
+package feed
+
+import (
+	"fmt"
+	"strings"
+	"time"
+
+	"heliocal/config"
+)
+
+// LampLimitGap is a lighting limit of a feed that does nothing on some of
+// its dates: a latest_off later than noon that comes before the evening
+// lamps start (the first latest_off after the start is then the next
+// day's, past the lamps' end), or an earliest_on earlier than noon that
+// comes after the morning lamps end.
+type LampLimitGap struct {
+	Kind      config.Kind
+	Option    string         // "latest_off" or "earliest_on"
+	Value     string         // the clock time, "18:45"
+	Dates     int            // how many dates
+	Stretches [][2]time.Time // the runs of consecutive dates: first, last
+}
+
+// Evening says whether the gap is a latest_off's (the evening lamps').
+func (g LampLimitGap) Evening() bool { return g.Option == "latest_off" }
+
+// HasLampLimit says whether feed f has a lighting limit (LampLimitGaps
+// reads its calendar).
+func HasLampLimit(f *config.Feed) bool {
+	for _, k := range f.Kinds {
+		if k.Kind.Name == config.KindLighting && (k.LatestOff != "" || k.EarliestOn != "") {
+			return true
+		}
+	}
+	return false
+}
+
+// LampLimitGaps finds the lighting limits of feed f that do nothing on
+// some of the dates of cal, the feed as built. A limit past midnight
+// ("01:00") or before noon in the evening is meant for the night and is
+// not one.
+func LampLimitGaps(f *config.Feed, cal *Calendar) []LampLimitGap {
+	var out []LampLimitGap
+	loc := cal.Site.Location
+	for _, k := range f.Kinds {
+		if k.Kind.Name != config.KindLighting {
+			continue
+		}
+		name := k.Kind.String()
+		for _, lim := range []struct {
+			key, value, part string
+		}{{"latest_off", k.LatestOff, partEvening}, {"earliest_on", k.EarliestOn, partMorning}} {
+			if lim.value == "" {
+				continue
+			}
+			clock, err := config.ParseClock(lim.value)
+			if err != nil {
+				continue // config has refused it already
+			}
+			evening := lim.part == partEvening
+			if evening != (clock > 12*time.Hour) || clock == 12*time.Hour {
+				continue
+			}
+			g := LampLimitGap{Kind: k.Kind, Option: lim.key, Value: lim.value}
+			for i := range cal.Entries {
+				e := &cal.Entries[i]
+				if e.Kind != name || e.AllDay || e.Facts.Note || e.Facts.Part != lim.part {
+					continue
+				}
+				// the clock time, on the entry's date, of the end the limit
+				// does not move: an evening's start, a morning's end
+				at := e.Start
+				if !evening {
+					at = e.End
+				}
+				local := at.In(loc)
+				y, m, d := local.Date()
+				if time.Date(y, m, d, 0, 0, 0, 0, time.UTC) != e.Date {
+					continue
+				}
+				of := time.Duration(local.Hour())*time.Hour + time.Duration(local.Minute())*time.Minute + time.Duration(local.Second())*time.Second
+				if evening && of <= clock || !evening && of >= clock {
+					continue
+				}
+				if k := len(g.Stretches) - 1; k >= 0 && e.Date.Sub(g.Stretches[k][1]) <= 24*time.Hour {
+					g.Stretches[k][1] = e.Date
+				} else {
+					g.Stretches = append(g.Stretches, [2]time.Time{e.Date, e.Date})
+				}
+				g.Dates++
+			}
+			if g.Dates > 0 {
+				out = append(out, g)
+			}
+		}
+	}
+	return out
+}
+
+// DatesText says on which dates the limit does nothing: "on 7 Nov 2027",
+// "on 238 dates between 14 Mar 2027 and 6 Nov 2027" (every date between),
+// and for dates in two or three stretches each of them, "on 6 dates in 2
+// stretches: 18–20 Nov 2026 and 18–20 Nov 2027" ("on 2 dates: 27 Mar 2027
+// and 10 Sep 2027"), which "between" the first and the last would make
+// seem a year of dates.
+func (g LampLimitGap) DatesText() string {
+	n, stretches := g.Dates, g.Stretches
+	first, last := stretches[0][0], stretches[len(stretches)-1][1]
+	switch {
+	case n == 1:
+		return "on " + first.Format("2 Jan 2006")
+	case len(stretches) == 1:
+		return fmt.Sprintf("on %d dates between %s and %s", n, first.Format("2 Jan 2006"), last.Format("2 Jan 2006"))
+	case len(stretches) > 3:
+		return fmt.Sprintf("on %d dates in %d stretches between %s and %s", n, len(stretches), first.Format("2 Jan 2006"), last.Format("2 Jan 2006"))
+	}
+	parts := make([]string, len(stretches))
+	for i, st := range stretches {
+		a, b := st[0], st[1]
+		switch {
+		case a.Equal(b):
+			parts[i] = a.Format("2 Jan 2006")
+		case a.Year() == b.Year() && a.Month() == b.Month():
+			parts[i] = a.Format("2") + "–" + b.Format("2 Jan 2006")
+		case a.Year() == b.Year():
+			parts[i] = a.Format("2 Jan") + "–" + b.Format("2 Jan 2006")
+		default:
+			parts[i] = a.Format("2 Jan 2006") + "–" + b.Format("2 Jan 2006")
+		}
+	}
+	list := strings.Join(parts[:len(parts)-1], ", ") + " and " + parts[len(parts)-1]
+	if n == len(stretches) { // single dates
+		return fmt.Sprintf("on %d dates: %s", n, list)
+	}
+	return fmt.Sprintf("on %d dates in %d stretches: %s", n, len(stretches), list)
+}
+
+// lampLimitSentence is what the calendar's description adds to a lighting
+// kind's meaning for a limit that does nothing on some dates, so that a
+// subscriber is not told "lamps off no later than 18:45" of lamps that run
+// to 21:39: "Where the evening lamps start after 18:45 (on 238 dates
+// between 14 Mar 2027 and 6 Nov 2027), they run until the target is
+// reached."
+func (g LampLimitGap) lampLimitSentence() string {
+	if g.Evening() {
+		return fmt.Sprintf("Where the evening lamps start after %s (%s), they run until the target is reached.", g.Value, g.DatesText())
+	}
+	return fmt.Sprintf("Where the morning lamps end before %s (%s), they start as early as the target needs.", g.Value, g.DatesText())
+}
+
+// noteLampLimitGaps adds to cal's description, after the meaning of each
+// lighting kind of f, the sentence of each of its limits that does nothing
+// on some of cal's dates.
+func noteLampLimitGaps(s *config.Site, f *config.Feed, cal *Calendar) {
+	if !HasLampLimit(f) {
+		return
+	}
+	gaps := LampLimitGaps(f, cal)
+	for _, spec := range f.Kinds {
+		var add []string
+		for _, g := range gaps {
+			if g.Kind == spec.Kind {
+				add = append(add, g.lampLimitSentence())
+			}
+		}
+		if len(add) == 0 {
+			continue
+		}
+		m := lightingMeaning(s, spec)
+		if i := strings.Index(cal.Description, m); i >= 0 {
+			i += len(m)
+			cal.Description = cal.Description[:i] + " " + strings.Join(add, " ") + cal.Description[i:]
+		}
+	}
+}

@@ -744,14 +744,11 @@ func skippedClock(ts config.TimeSpec, t time.Time, z *zoneCache) string {
 	// the clock shown, to the minute, from the zone's cached offset
 	u := t.Unix()
 	_, off := z.at(u)
-	if time.Duration(daySeconds(u+off)/60)*time.Minute == ts.Clock {
-		return ""
-	}
-	lt := t.In(z.loc)
-	shown := time.Duration(lt.Hour())*time.Hour + time.Duration(lt.Minute())*time.Minute
+	shown := time.Duration(daySeconds(u+off)/60) * time.Minute
 	if shown == ts.Clock {
 		return ""
 	}
+	lt := t.In(z.loc)
 	moved := (shown - ts.Clock + 24*time.Hour) % (24 * time.Hour)
 	why := "the clocks go forward"
 	if lt.IsDST() {

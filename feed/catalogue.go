@@ -666,8 +666,8 @@ type entryWriter struct {
 
 	// digest hashes the UIDs' keys (see appendHash).
 	digest *blockDigest
-	// clockOn, when set, finds the plans' clock times on their dates
-	// (collector.clockOnDay, from its midnights)
+	// clockOn finds the plans' clock times on their dates
+	// (collector.clockOnDay, from its midnights); planEntries sets it
 	clockOn *collector
 
 	// dates are the texts of the window's dates in the UIDs' keys, from

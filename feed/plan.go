@@ -722,10 +722,7 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 // when the event does not happen on d.
 func (w *entryWriter) planTime(ts config.TimeSpec, d time.Time, times map[config.Kind]*kindTimes) (time.Time, bool, error) {
 	if ts.IsClock {
-		if w.clockOn != nil {
-			return w.clockOn.clockOnDay(floorDiv(d.Unix(), secondsPerDay), ts.Clock), true, nil
-		}
-		return clockOn(d, ts.Clock, w.site.TimeZone.Location), true, nil
+		return w.clockOn.clockOnDay(floorDiv(d.Unix(), secondsPerDay), ts.Clock), true, nil
 	}
 	t, ok, err := times[ts.Event].at(d)
 	if err != nil || !ok {

@@ -1014,12 +1014,8 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 	var lamp []byte // a lamp period's title, written to text when kept as it is
 	from := len(w.text)
 	if e.Kind.Name == config.KindLighting {
-		lt := w.cur.lamp // begin's, for spec
-		if lt == nil {
-			lt = w.lightingText(spec)
-		}
 		var buf [96]byte
-		w.text, lamp = lt.appendDescription(w.text, buf[:0], w.site, e)
+		w.text, lamp = w.cur.lamp.appendDescription(w.text, buf[:0], w.site, e) // begin's, for spec
 		if offset != 0 || spec.Label != "" {
 			title, lamp = string(lamp), nil
 		}

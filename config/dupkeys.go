@@ -15,17 +15,11 @@ import (
 // ignoring case as the configuration does ("latitude" and "Latitude" are
 // one key). The decoders keep the last one silently, so each is a problem
 // naming both places. Input that does not parse is left to the decoder,
-// which words the syntax error.
-func duplicateKeys(data []byte, format string) (problems []FieldError) {
-	problems, _ = duplicateKeysDoc(data, format)
-	return problems
-}
-
-// duplicateKeysDoc is duplicateKeys that also returns the YAML document
-// it parsed (nil for the other formats and for input that does not
-// parse), so that readConfig decodes it without parsing the text again:
-// parsing is most of the work of reading a large YAML configuration.
-func duplicateKeysDoc(data []byte, format string) (problems []FieldError, doc *yaml.Node) {
+// which words the syntax error. It also returns the YAML document it
+// parsed (nil for the other formats and for input that does not parse),
+// so that readConfig decodes it without parsing the text again: parsing
+// is most of the work of reading a large YAML configuration.
+func duplicateKeys(data []byte, format string) (problems []FieldError, doc *yaml.Node) {
 	defer func() {
 		if recover() != nil {
 			problems, doc = nil, nil // hostile input: the decoder reports it

@@ -59,7 +59,7 @@ func TestDuplicateKeysRefused(t *testing.T) {
 // The same key in different mappings is no duplicate: every site has an id.
 func TestDuplicateKeysOnlyWithinOneMapping(t *testing.T) {
 	for _, format := range []string{"yaml", "json", "toml"} {
-		if dups := duplicateKeys(demoIn(t, format), format); len(dups) != 0 {
+		if dups, _ := duplicateKeys(demoIn(t, format), format); len(dups) != 0 {
 			t.Errorf("%s: %v", format, dups)
 		}
 	}
@@ -111,7 +111,7 @@ func TestDuplicateKeysListedWithOtherProblems(t *testing.T) {
 }
 
 // TestReadConfigFromDocument: a YAML configuration decoded from the
-// document duplicateKeysDoc parsed gives viper the settings, and the
+// document duplicateKeys parsed gives viper the settings, and the
 // error, that reading its text does, for the demo and every YAML file of
 // testdata/config (syntax errors, hostile shapes and mistakes included).
 func TestReadConfigFromDocument(t *testing.T) {
@@ -129,7 +129,7 @@ func TestReadConfigFromDocument(t *testing.T) {
 	}
 	fromDoc := 0
 	for name, data := range inputs {
-		_, doc := duplicateKeysDoc(data, "yaml")
+		_, doc := duplicateKeys(data, "yaml")
 		if doc != nil {
 			fromDoc++
 		} else if name == "demo" {

@@ -115,7 +115,7 @@ func parseFrom(r io.Reader, format string, env LookupEnv, dir string) (*Config, 
 func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, err error) {
 	// Duplicate keys are problems of their own; the first of each is kept
 	// so that every other problem of the document is listed with them.
-	dups, doc := duplicateKeysDoc(data, format)
+	dups, doc := duplicateKeys(data, format)
 	decoded, decodedAs := data, format
 	if len(dups) > 0 {
 		decoded, decodedAs = withoutDuplicates(data, format)
@@ -201,7 +201,7 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 // readConfig runs viper's reader, turning a panic of a format decoder on
 // hostile input into an error: the file is then unreadable, never a crash.
 //
-// doc, when not nil, is data's YAML document as duplicateKeysDoc parsed
+// doc, when not nil, is data's YAML document as duplicateKeys parsed
 // it: decoded from there, the text is not parsed a second time. The map
 // is the one viper's ReadConfig would decode from the text (the same
 // decoder, from the same document), which MergeConfigMap takes into the

@@ -2,12 +2,16 @@ package publish
 
 import (
 	"bytes"
+	"context"
+	"encoding/json"
 	"os"
 	"path/filepath"
 	"testing"
 	"unsafe"
 
 	"golang.org/x/sys/unix"
+
+	"heliocal/feed"
 )
 
 // A feed large enough to be written around the page cache (an aligned
@@ -79,5 +83,49 @@ func TestWriteDirect(t *testing.T) {
 	}
 	if resident > 0 {
 		t.Errorf("%d of the head's %d pages are in the page cache: it was not written with O_DIRECT", resident, head)
+	}
+}
+
+// A feed larger than a worker's buffer (hugeBufferSize, mapped outside the
+// Go heap) is published whole, and so are the feeds the same worker renders
+// before and after it, once it has outgrown that buffer: each file holds
+// its own feed's bytes, as feeds.json lists them (size and SHA-256),
+// written after the worker has unmapped its buffer. One worker renders
+// them in order: a small feed, one larger than the buffer, a small one,
+// and one large enough to be written with O_DIRECT.
+func TestPublishFeedLargerThanBuffer(t *testing.T) {
+	cals := testCalendars(t, "")
+	again := *cals[0]
+	again.ID = "orchard-sunrise-again"
+	cals = append(cals, &again)
+	sizes := []int{3_000, hugeBufferSize + 123_457, 2_000, 1_500_000}
+	want := map[string][]byte{}
+	for i, c := range cals {
+		line := []byte(c.ID + " sky calendar\r\n") // each feed's bytes its own
+		want[c.ID] = bytes.Repeat(line, sizes[i]/len(line)+1)[:sizes[i]]
+	}
+	opts := testOptions()
+	opts.Workers = 1
+	opts.Encode = func(c *feed.Calendar) ([]byte, error) { return want[c.ID], nil }
+	dir := t.TempDir()
+	if _, err := Publish(context.Background(), Calendars(cals...), opts, &Writer{Dir: dir}); err != nil {
+		t.Fatal(err)
+	}
+	got := snapshot(t, dir)
+	var fj feedsJSON
+	if err := json.Unmarshal(got[FeedsJSONName], &fj); err != nil {
+		t.Fatal(err)
+	}
+	if len(fj.Feeds) != len(cals) {
+		t.Fatalf("feeds.json lists %d feeds, want %d", len(fj.Feeds), len(cals))
+	}
+	for _, f := range fj.Feeds {
+		w := want[f.ID]
+		if !bytes.Equal(got[f.File], w) {
+			t.Errorf("%s: its %d bytes on disk are not the feed's %d", f.File, len(got[f.File]), len(w))
+		}
+		if f.Bytes != len(w) || f.Checksum != checksum(w) {
+			t.Errorf("%s: feeds.json lists %d bytes, SHA-256 %s; want %d, %s", f.File, f.Bytes, f.Checksum, len(w), checksum(w))
+		}
 	}
 }

@@ -30,6 +30,20 @@ func checkWarnings(t *testing.T, cfg string, now time.Time) []string {
 	return r.Warnings
 }
 
+// wantWarningsStart checks that the lamp warnings got are as many as want
+// and that each starts with its want, up to the words all of them share.
+func wantWarningsStart(t *testing.T, got, want []string) {
+	t.Helper()
+	if len(got) != len(want) {
+		t.Fatalf("warnings:\n%s\nwant %d", strings.Join(got, "\n"), len(want))
+	}
+	for i := range want {
+		if !strings.HasPrefix(got[i], want[i]+", so it does not limit them: ") {
+			t.Errorf("warning %d:\n%s\nwant it to start\n%s", i, got[i], want[i])
+		}
+	}
+}
+
 // havanaLamps are feeds at Havana with lighting limits, two of which do
 // nothing on some dates of the year from havanaLampsNow
 // (TestLampLimitWarning says which, and the source of its dates).
@@ -79,14 +93,7 @@ func TestLampLimitWarning(t *testing.T) {
 		// 194 dates.
 		`feed "morning-lamps": lighting:14h earliest_on "07:25" comes after the morning lamps end on 194 dates between 1 Apr 2027 and 11 Oct 2027`,
 	}
-	if len(got) != len(want) {
-		t.Fatalf("warnings:\n%s\nwant %d", strings.Join(got, "\n"), len(want))
-	}
-	for i := range want {
-		if !strings.HasPrefix(got[i], want[i]+", so it does not limit them: ") {
-			t.Errorf("warning %d:\n%s\nwant it to start\n%s", i, got[i], want[i])
-		}
-	}
+	wantWarningsStart(t, got, want)
 }
 
 // Dates in a few stretches are named stretch by stretch, not as "between"
@@ -122,14 +129,7 @@ feeds:
 		`feed "polar-lamps": lighting:16h earliest_on "07:00" comes after the morning lamps end on 39 dates in 2 stretches: 12 Mar–2 Apr 2027 and 10–26 Sep 2027`,
 		`feed "dawn-lamps": lighting:16h earliest_on "05:00" comes after the morning lamps end on 2 dates: 27 Mar 2027 and 10 Sep 2027`,
 	}
-	if len(got) != len(want) {
-		t.Fatalf("warnings:\n%s\nwant %d", strings.Join(got, "\n"), len(want))
-	}
-	for i := range want {
-		if !strings.HasPrefix(got[i], want[i]+", so it does not limit them: ") {
-			t.Errorf("warning %d:\n%s\nwant it to start\n%s", i, got[i], want[i])
-		}
-	}
+	wantWarningsStart(t, got, want)
 }
 
 // publish prints check's lamp warnings, in check's words, on standard

@@ -298,12 +298,6 @@ type extremum struct {
 	upper bool    // near hour angle 0 (maximum) rather than 180° (minimum)
 }
 
-// passage returns the first instant ≥ from at which the local hour angle
-// equals target modulo 2π, solved to 0.1 ms.
-func (tr *track) passage(st *site, from, target float64) float64 {
-	return tr.passageTol(st, from, target, 1e-4)
-}
-
 // remainder2Pi is math.Remainder(x, 2π), the same number, at a tenth of
 // its cost where x lies within ±3π (the change of a smooth angle from one
 // sample to the next, across a wrap): x − 2π·n with n = round(x/2π) of −1,
@@ -323,7 +317,8 @@ func wrapPi(a float64) float64 {
 	return a - 2*math.Pi*math.Floor(a/(2*math.Pi)+0.5)
 }
 
-// passageTol is passage solved to tol seconds.
+// passageTol returns the first instant ≥ from at which the local hour
+// angle equals target modulo 2π, solved to tol seconds.
 func (tr *track) passageTol(st *site, from, target, tol float64) float64 {
 	d := wrapPi(target - tr.hourAngle(st, from)) // forward distance in [0, 2π)
 	if d < 0 {
@@ -367,32 +362,45 @@ func (tr *track) appendExtrema(out []extremum, st *site, a, b float64) []extremu
 		H += 2 * math.Pi
 	}
 	m := math.Floor(H/math.Pi) + 1 // next multiple of π
-	// p1, p2: the last two passages (0: not yet). The Sun's next one is
-	// about as far after the last as the last after the one before
-	// (within a second), so that Newton's method starts there, not from
-	// an instant a half turn before it: one or two hour angles a passage
-	// instead of three. (The Moon's passages are found as before: its
-	// searches over different spans give the same instants to the
-	// microsecond, which its skyline's crossings are matched by.)
-	var p1, p2 float64
-	for n := 0; ; n++ {
+	var last lastPassages
+	for {
 		target := m * math.Pi
 		upper := int64(m)%2 == 0 // m is a whole number (math.Mod took 400 instructions)
-		var tp float64
-		if n >= 2 && tr.carry {
-			tp = tr.passageNear(st, 2*p1-p2, target, 0.5)
-		} else {
-			tp = tr.passageTol(st, t, target, 0.5)
-		}
+		tp := tr.nextPassage(st, &last, t, target, 0.5)
 		if tp > b {
 			break
 		}
 		out = append(out, tr.refineExtremum(st, tp, upper))
 		t = tp + 1
-		p1, p2 = tp, p1
 		m++
 	}
 	return out
+}
+
+// lastPassages are the last two passages nextPassage found in a search,
+// and how many it found.
+type lastPassages struct {
+	n      int
+	p1, p2 float64 // the last, the one before
+}
+
+// nextPassage is passageTol from t, noted in last. The Sun's next passage
+// (tr.carry) is about as far after the last as the last after the one
+// before (within a second), so that once two are known Newton's method
+// starts there, not from an instant a half turn before it: one or two
+// hour angles a passage instead of three. (The Moon's passages are found
+// from t: its searches over different spans give the same instants to the
+// microsecond, which its skyline's crossings are matched by.)
+func (tr *track) nextPassage(st *site, last *lastPassages, t, target, tol float64) float64 {
+	var tp float64
+	if last.n >= 2 && tr.carry {
+		tp = tr.passageNear(st, 2*last.p1-last.p2, target, tol)
+	} else {
+		tp = tr.passageTol(st, t, target, tol)
+	}
+	last.n++
+	last.p1, last.p2 = tp, last.p1
+	return tp
 }
 
 // refineExtremum finds the altitude extremum near the meridian passage tp.
@@ -662,17 +670,9 @@ func (tr *track) appendTransits(out []Transit, st *site, from, to time.Time) []T
 	a, b := unixSeconds(from), unixSeconds(to)
 	out = slices.Grow(out, int((b-a)/secondsPerDay)+2)
 	t := a
-	// each of the Sun's transits from the two before it, as
-	// appendExtrema does its passages
-	var p1, p2 float64
-	for n := 0; ; n++ {
-		var tp float64
-		if n >= 2 && tr.carry {
-			tp = tr.passageNear(st, 2*p1-p2, 0, 1e-4)
-		} else {
-			tp = tr.passage(st, t, 0)
-		}
-		p1, p2 = tp, p1
+	var last lastPassages // each of the Sun's transits from the two before it
+	for {
+		tp := tr.nextPassage(st, &last, t, 0, 1e-4) // to 0.1 ms
 		if tp >= b {
 			break
 		}

@@ -121,6 +121,10 @@ type Calendar struct {
 	// reach after the window was shortened to keep the feed under its size
 	// limit.
 	TrimmedTo time.Time
+	// LampLimitGaps are the lighting limits of the feed that do nothing on
+	// some of its dates (LampLimitGaps, as Sky.Calendar found them), which
+	// its description tells of.
+	LampLimitGaps []LampLimitGap
 
 	// text is the memory of the entries' descriptions and UIDs, when the
 	// catalogue made them as substrings of one buffer: Release hands it

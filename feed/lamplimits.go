@@ -148,17 +148,17 @@ func (g LampLimitGap) lampLimitSentence() string {
 	return fmt.Sprintf("Where the morning lamps end before %s (%s), they start as early as the target needs.", g.Value, g.DatesText())
 }
 
-// noteLampLimitGaps adds to cal's description, after the meaning of each
-// lighting kind of f, the sentence of each of its limits that does nothing
-// on some of cal's dates.
+// noteLampLimitGaps keeps in cal.LampLimitGaps the limits of f that do
+// nothing on some of cal's dates, and adds to cal's description, after the
+// meaning of each lighting kind of f, the sentence of each of them.
 func noteLampLimitGaps(s *config.Site, f *config.Feed, cal *Calendar) {
 	if !HasLampLimit(f) {
 		return
 	}
-	gaps := LampLimitGaps(f, cal)
+	cal.LampLimitGaps = LampLimitGaps(f, cal)
 	for _, spec := range f.Kinds {
 		var add []string
-		for _, g := range gaps {
+		for _, g := range cal.LampLimitGaps {
 			if g.Kind == spec.Kind {
 				add = append(add, g.lampLimitSentence())
 			}

@@ -11,11 +11,11 @@ import (
 )
 
 // lampLimitWarnings words the lighting limits of feed f that do nothing
-// on some of its dates (feed.LampLimitGaps), reading cal, the feed as
-// built.
+// on some of its dates, as cal, the feed as built, found them
+// (feed.Calendar.LampLimitGaps).
 func lampLimitWarnings(f *config.Feed, cal *feed.Calendar) []lampWarning {
 	var out []lampWarning
-	for _, g := range feed.LampLimitGaps(f, cal) {
+	for _, g := range cal.LampLimitGaps {
 		w := lampWarning{limit: fmt.Sprintf("%s|%s|%s=%s", f.ID, g.Kind, g.Option, g.Value)}
 		if g.Evening() {
 			w.text = fmt.Sprintf("feed %q: %s latest_off %q comes before the evening lamps start %s, so it does not limit them: they run until the target is reached; for no evening lamps on those dates, use months: or lamps: morning",

@@ -515,10 +515,10 @@ func (sky *Sky) planDates(ctx context.Context, p Place, r config.DateRule, first
 	// A date is listed once, for all of its anchors: two anchors give one
 	// date when a weekday rule takes them to the same weekday ("saturday
 	// after moon-phases": a first quarter on a Saturday, the full moon on
-	// the Friday after), and the entry names both. taken marks the dates
-	// listed, by day of the window, so that the check costs the same
-	// whatever the order of the dates.
-	taken := make([]uint64, daysBetween(first, last)/64+1)
+	// the Friday after), and the entry names both. listed holds, by day of
+	// the window, 1 + the index in out of the date's entry (0: none yet),
+	// so that finding it costs the same whatever the order of the dates.
+	listed := make([]int, daysBetween(first, last)+1)
 	for _, e := range evs {
 		d := e.day
 		if r.Type == config.RuleWeekdayOf {
@@ -528,17 +528,12 @@ func (sky *Sky) planDates(ctx context.Context, p Place, r config.DateRule, first
 			continue
 		}
 		i := daysBetween(first, d)
-		if taken[i/64]&(1<<(i%64)) != 0 {
-			for j := len(out) - 1; j >= 0; j-- { // the date's entry: mostly the last one
-				if out[j].date.Equal(d) {
-					out[j].also = append(out[j].also, planAnchor{e.kind, e.at})
-					break
-				}
-			}
+		if j := listed[i]; j > 0 {
+			out[j-1].also = append(out[j-1].also, planAnchor{e.kind, e.at})
 			continue
 		}
-		taken[i/64] |= 1 << (i % 64)
 		out = append(out, planDate{date: d, anchored: true, kind: e.kind, at: e.at})
+		listed[i] = len(out)
 	}
 	return out, nil
 }

@@ -122,7 +122,7 @@ type Calendar struct {
 	// limit.
 	TrimmedTo time.Time
 	// LampLimitGaps are the lighting limits of the feed that do nothing on
-	// some of its dates (LampLimitGaps, as Sky.Calendar found them), which
+	// some of its dates, as Sky.Calendar found them (lampLimitGaps), which
 	// its description tells of.
 	LampLimitGaps []LampLimitGap
 

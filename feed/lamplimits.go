@@ -24,7 +24,7 @@ type LampLimitGap struct {
 // Evening says whether the gap is a latest_off's (the evening lamps').
 func (g LampLimitGap) Evening() bool { return g.Option == "latest_off" }
 
-// HasLampLimit says whether feed f has a lighting limit (LampLimitGaps
+// HasLampLimit says whether feed f has a lighting limit (lampLimitGaps
 // reads its calendar).
 func HasLampLimit(f *config.Feed) bool {
 	for _, k := range f.Kinds {
@@ -35,11 +35,11 @@ func HasLampLimit(f *config.Feed) bool {
 	return false
 }
 
-// LampLimitGaps finds the lighting limits of feed f that do nothing on
+// lampLimitGaps finds the lighting limits of feed f that do nothing on
 // some of the dates of cal, the feed as built. A limit past midnight
 // ("01:00") or before noon in the evening is meant for the night and is
 // not one.
-func LampLimitGaps(f *config.Feed, cal *Calendar) []LampLimitGap {
+func lampLimitGaps(f *config.Feed, cal *Calendar) []LampLimitGap {
 	var out []LampLimitGap
 	loc := cal.Site.Location
 	for _, k := range f.Kinds {
@@ -155,7 +155,7 @@ func noteLampLimitGaps(s *config.Site, f *config.Feed, cal *Calendar) {
 	if !HasLampLimit(f) {
 		return
 	}
-	cal.LampLimitGaps = LampLimitGaps(f, cal)
+	cal.LampLimitGaps = lampLimitGaps(f, cal)
 	for _, spec := range f.Kinds {
 		var add []string
 		for _, g := range cal.LampLimitGaps {

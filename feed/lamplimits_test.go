@@ -35,7 +35,7 @@ func TestLampLimitGapInDescription(t *testing.T) {
 		if !strings.Contains(cal.Description, c.want) || strings.Count(cal.Description, "Where the") > 1 {
 			t.Errorf("latest_off %s: description\n%s\nwant it to hold %q once", c.latestOff, cal.Description, c.want)
 		}
-		gaps := LampLimitGaps(f, cal)
+		gaps := cal.LampLimitGaps // as the calendar keeps them
 		if want := strings.Contains(c.want, "Where"); (len(gaps) == 1) != want || want && (gaps[0].Dates != 3 || !gaps[0].Evening()) {
 			t.Errorf("latest_off %s: gaps %+v", c.latestOff, gaps)
 		}

@@ -145,7 +145,7 @@ func publishingWhat(srcs []publish.Source, shard publish.Shard) string {
 		if n == 1 {
 			return "1 feed"
 		}
-		return fmt.Sprintf("%d feeds", n)
+		return publish.FormatCount(n) + " feeds"
 	}
 	if !shard.Sharded() {
 		return feeds(len(srcs))
@@ -156,7 +156,7 @@ func publishingWhat(srcs []publish.Source, shard publish.Shard) string {
 			n++
 		}
 	}
-	return fmt.Sprintf("shard %s: %s of %d", shard, feeds(n), len(srcs))
+	return fmt.Sprintf("shard %s: %s of %s", shard, feeds(n), publish.FormatCount(len(srcs)))
 }
 
 // configDigest fingerprints what shapes the published files: the sites, the

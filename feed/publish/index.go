@@ -52,8 +52,9 @@ type feedView struct {
 	Webcal          template.URL // webcal:// URL; empty without a base URL
 }
 
-// formatCount writes 41210 as "41,210".
-func formatCount(n int) string {
+// FormatCount writes 41210 as "41,210"; every count heliocal reports
+// beside the sizes of FormatBytes is written this way.
+func FormatCount(n int) string {
 	s := strconv.Itoa(n)
 	neg := strings.HasPrefix(s, "-")
 	s = strings.TrimPrefix(s, "-")
@@ -100,7 +101,7 @@ func FormatBytesOver(n, limit int64) (size, lim string) {
 		unit, div = "kB", 1e3
 	}
 	if div == 1 {
-		return formatCount(int(n)) + " B", formatCount(int(limit)) + " B"
+		return FormatCount(int(n)) + " B", FormatCount(int(limit)) + " B"
 	}
 	d := 0 // the decimals that write the limit exactly, if three do
 	for d < 3 && math.Mod(float64(limit), div/math.Pow10(d)) != 0 {
@@ -113,7 +114,7 @@ func FormatBytesOver(n, limit int64) (size, lim string) {
 			return trimZeros(a) + " " + unit, trimZeros(b) + " " + unit
 		}
 	}
-	return formatCount(int(n)) + " bytes", formatCount(int(limit)) + " bytes"
+	return FormatCount(int(n)) + " bytes", FormatCount(int(limit)) + " bytes"
 }
 
 // trimZeros drops the zeros ending the decimals of x, and the point if
@@ -155,7 +156,7 @@ func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, 
 	for _, f := range l.feeds {
 		events += f.Events
 		size += int64(f.Bytes)
-		fv := feedView{ID: f.ID, Title: f.Title, File: f.File, Events: formatCount(f.Events), Size: FormatBytes(int64(f.Bytes))}
+		fv := feedView{ID: f.ID, Title: f.Title, File: f.File, Events: FormatCount(f.Events), Size: FormatBytes(int64(f.Bytes))}
 		if opts.Page != nil {
 			fv.Description = opts.Page.Descriptions[f.ID]
 		}
@@ -168,7 +169,7 @@ func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, 
 		}
 		bySite[f.Site] = append(bySite[f.Site], fv)
 	}
-	v.Events = formatCount(events)
+	v.Events = FormatCount(events)
 	v.Size = FormatBytes(size)
 
 	charts := opts.Charts

@@ -115,9 +115,9 @@ func Summary(st Stats, dir string) string {
 		fmt.Fprintf(&b, "shard %s: ", st.Shard)
 	}
 	fmt.Fprintf(&b, "%s %s (%s written, %s unchanged), %s events, %s in %.2f s to %s",
-		formatCount(st.Feeds), plural(st.Feeds, "feed", "feeds"),
-		formatCount(st.FeedsWritten), formatCount(st.FeedsUnchanged),
-		formatCount(st.Events), FormatBytes(st.Bytes), st.Elapsed.Seconds(), displayDir(dir))
+		FormatCount(st.Feeds), plural(st.Feeds, "feed", "feeds"),
+		FormatCount(st.FeedsWritten), FormatCount(st.FeedsUnchanged),
+		FormatCount(st.Events), FormatBytes(st.Bytes), st.Elapsed.Seconds(), displayDir(dir))
 	if st.Shard.Sharded() {
 		switch st.Index {
 		case IndexPending:

@@ -23,7 +23,7 @@ func (z *Zone) UnmarshalText(b []byte) error {
 	}
 	loc, err := loadZone(name)
 	if err != nil {
-		return &ZoneError{Name: name, Hint: zoneHint(name)}
+		return &ZoneError{Name: name, Hint: ZoneHint(name)}
 	}
 	z.Location = loc
 	return nil
@@ -100,12 +100,16 @@ var zoneNames = sync.OnceValue(func() []string {
 // built with (see gen_zonenames.go).
 func ZoneNames() []string { return slices.Clone(zoneNames()) }
 
-// zoneHint suggests the known zone nearest to a misspelt name: same name with
+// ZoneHint suggests the known zone nearest to a misspelt name: same name with
 // other capitals, same city with another region, or the nearest by edit
-// distance.
-func zoneHint(name string) string {
+// distance; without one (or for an empty name), two examples of IANA names.
+// The configuration's errors and the ad-hoc feeds' give the same hint.
+func ZoneHint(name string) string {
 	const generic = `use an IANA name such as "Europe/Vienna" or "America/New_York"`
 	n := strings.ReplaceAll(strings.TrimSpace(name), " ", "_")
+	if n == "" {
+		return generic
+	}
 	for _, z := range zoneNames() {
 		if strings.EqualFold(z, n) {
 			return fmt.Sprintf("did you mean %q?", z)

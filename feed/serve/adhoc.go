@@ -3,7 +3,6 @@ package serve
 import (
 	"crypto/sha256"
 	"encoding/hex"
-	"errors"
 	"fmt"
 	"math"
 	"net/url"
@@ -273,12 +272,7 @@ func (q *AdhocQuery) parseZone(get getter, lim *adhocLimits) error {
 	var err error
 	if q.Location, err = lim.zones.load(tz); err != nil {
 		// the configuration's suggestion: the nearest known name
-		hint := "use an IANA name such as Europe/Vienna"
-		var ze *config.ZoneError
-		if errors.As(new(config.Zone).UnmarshalText([]byte(tz)), &ze) && ze.Hint != "" {
-			hint = ze.Hint
-		}
-		return &QueryError{Param: ParamZone, Value: tz, Msg: "unknown time zone (" + hint + ")"}
+		return &QueryError{Param: ParamZone, Value: tz, Msg: "unknown time zone (" + config.ZoneHint(tz) + ")"}
 	}
 	return nil
 }

@@ -91,6 +91,9 @@ func TestAdhocBadParameters(t *testing.T) {
 		{"lat=47&lon=13&tz=europe/vienna&kinds=sunrise", "tz", `did you mean "Europe/Vienna"?`},
 		{"lat=-33.45&lon=-70.66&tz=America/Santiag&kinds=sunrise", "tz", `did you mean "America/Santiago"?`},
 		{"lat=47&lon=13&tz=", "tz", `""`},
+		// an empty name and one nothing resembles get the same two examples
+		{"lat=47&lon=13&tz=", "tz", `use an IANA name such as "Europe/Vienna" or "America/New_York"`},
+		{"lat=47&lon=13&tz=Local&kinds=sunrise", "tz", `use an IANA name such as "Europe/Vienna" or "America/New_York"`},
 		{"lat=47&lon=13&tz=UTC", "kinds", ""},
 		{"lat=47&lon=13&tz=UTC&kinds=", "kinds", `""`},
 		{"lat=47&lon=13&tz=UTC&kinds=sunrise,,sunset", "kinds", `"sunrise,,sunset"`},

@@ -41,7 +41,7 @@ func HasLampLimit(f *config.Feed) bool {
 // not one.
 func lampLimitGaps(f *config.Feed, cal *Calendar) []LampLimitGap {
 	var out []LampLimitGap
-	loc := cal.Site.Location
+	z := newZoneCache(cal.Site.Location)
 	for _, k := range f.Kinds {
 		if k.Kind.Name != config.KindLighting {
 			continue
@@ -73,12 +73,12 @@ func lampLimitGaps(f *config.Feed, cal *Calendar) []LampLimitGap {
 				if !evening {
 					at = e.End
 				}
-				local := at.In(loc)
-				y, m, d := local.Date()
-				if time.Date(y, m, d, 0, 0, 0, 0, time.UTC) != e.Date {
+				u := at.Unix()
+				_, off := z.at(u)
+				if floorDiv(u+off, secondsPerDay)*secondsPerDay != e.Date.Unix() {
 					continue
 				}
-				of := time.Duration(local.Hour())*time.Hour + time.Duration(local.Minute())*time.Minute + time.Duration(local.Second())*time.Second
+				of := time.Duration(daySeconds(u+off)) * time.Second
 				if evening && of <= clock || !evening && of >= clock {
 					continue
 				}

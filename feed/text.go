@@ -695,7 +695,7 @@ func describe(s *siteInfo, e Event) (string, string) {
 		}
 		title = fmt.Sprintf("%s: Earth %s the Sun", title, near)
 		fmt.Fprintf(&b, "Earth is %s the Sun at %s (%s UTC): %.6f au (%s km).", near, at,
-			ToSecond(e.Start).UTC().Format("2006-01-02 15:04:05"), e.Distance, thousands(e.Distance*149597870.7))
+			ToSecond(e.Start).UTC().Format("2006-01-02 15:04:05"), e.Distance, FormatCount(int(math.Round(e.Distance*149597870.7))))
 		b.WriteString(FutureNote(e.Start))
 	case "photoperiod":
 		what, how := "Day length", "the Sun is up for %s (%s from the day before), sunrise to sunset"
@@ -1038,18 +1038,23 @@ func capital(s string) string {
 	return strings.ToUpper(s[:1]) + s[1:]
 }
 
-// thousands formats a number rounded to the unit with thin grouping commas.
-func thousands(x float64) string {
-	n := int64(math.Round(x))
-	s := fmt.Sprint(n)
-	var out []byte
-	for i := range len(s) {
+// FormatCount writes 41210 as "41,210", with grouping commas; every count
+// heliocal reports is written this way (publish's sizes beside it).
+func FormatCount(n int) string {
+	s := strconv.Itoa(n)
+	neg := strings.HasPrefix(s, "-")
+	s = strings.TrimPrefix(s, "-")
+	var b strings.Builder
+	for i, r := range s {
 		if i > 0 && (len(s)-i)%3 == 0 {
-			out = append(out, ',')
+			b.WriteByte(',')
 		}
-		out = append(out, s[i])
+		b.WriteRune(r)
 	}
-	return string(out)
+	if neg {
+		return "-" + b.String()
+	}
+	return b.String()
 }
 
 // describeNote gives the all-day entry for a date without an event.

@@ -13,6 +13,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"heliocal/config"
+	"heliocal/feed"
 	"heliocal/feed/publish"
 )
 
@@ -145,7 +146,7 @@ func publishingWhat(srcs []publish.Source, shard publish.Shard) string {
 		if n == 1 {
 			return "1 feed"
 		}
-		return publish.FormatCount(n) + " feeds"
+		return feed.FormatCount(n) + " feeds"
 	}
 	if !shard.Sharded() {
 		return feeds(len(srcs))
@@ -156,7 +157,7 @@ func publishingWhat(srcs []publish.Source, shard publish.Shard) string {
 			n++
 		}
 	}
-	return fmt.Sprintf("shard %s: %s of %s", shard, feeds(n), publish.FormatCount(len(srcs)))
+	return fmt.Sprintf("shard %s: %s of %s", shard, feeds(n), feed.FormatCount(len(srcs)))
 }
 
 // configDigest fingerprints what shapes the published files: the sites, the

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"testing"
 
+	"heliocal/feed"
 	"heliocal/feed/publish"
 )
 
@@ -30,7 +31,7 @@ func TestPublishingWhatCounts(t *testing.T) {
 			n++
 		}
 	}
-	if want := fmt.Sprintf("shard 1/4: %s feeds of 1,000", publish.FormatCount(n)); publishingWhat(srcs, shard) != want {
+	if want := fmt.Sprintf("shard 1/4: %s feeds of 1,000", feed.FormatCount(n)); publishingWhat(srcs, shard) != want {
 		t.Errorf("shard 1/4: %q, want %q", publishingWhat(srcs, shard), want)
 	}
 }

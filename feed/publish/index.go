@@ -52,25 +52,6 @@ type feedView struct {
 	Webcal          template.URL // webcal:// URL; empty without a base URL
 }
 
-// FormatCount writes 41210 as "41,210"; every count heliocal reports
-// beside the sizes of FormatBytes is written this way.
-func FormatCount(n int) string {
-	s := strconv.Itoa(n)
-	neg := strings.HasPrefix(s, "-")
-	s = strings.TrimPrefix(s, "-")
-	var b strings.Builder
-	for i, r := range s {
-		if i > 0 && (len(s)-i)%3 == 0 {
-			b.WriteByte(',')
-		}
-		b.WriteRune(r)
-	}
-	if neg {
-		return "-" + b.String()
-	}
-	return b.String()
-}
-
 // FormatBytes writes a size in SI units: "812 B", "41.2 kB", "5.2 MB"; every
 // size heliocal reports is written this way.
 func FormatBytes(n int64) string {
@@ -101,7 +82,7 @@ func FormatBytesOver(n, limit int64) (size, lim string) {
 		unit, div = "kB", 1e3
 	}
 	if div == 1 {
-		return FormatCount(int(n)) + " B", FormatCount(int(limit)) + " B"
+		return feed.FormatCount(int(n)) + " B", feed.FormatCount(int(limit)) + " B"
 	}
 	d := 0 // the decimals that write the limit exactly, if three do
 	for d < 3 && math.Mod(float64(limit), div/math.Pow10(d)) != 0 {
@@ -114,7 +95,7 @@ func FormatBytesOver(n, limit int64) (size, lim string) {
 			return trimZeros(a) + " " + unit, trimZeros(b) + " " + unit
 		}
 	}
-	return FormatCount(int(n)) + " bytes", FormatCount(int(limit)) + " bytes"
+	return feed.FormatCount(int(n)) + " bytes", feed.FormatCount(int(limit)) + " bytes"
 }
 
 // trimZeros drops the zeros ending the decimals of x, and the point if
@@ -156,7 +137,7 @@ func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, 
 	for _, f := range l.feeds {
 		events += f.Events
 		size += int64(f.Bytes)
-		fv := feedView{ID: f.ID, Title: f.Title, File: f.File, Events: FormatCount(f.Events), Size: FormatBytes(int64(f.Bytes))}
+		fv := feedView{ID: f.ID, Title: f.Title, File: f.File, Events: feed.FormatCount(f.Events), Size: FormatBytes(int64(f.Bytes))}
 		if opts.Page != nil {
 			fv.Description = opts.Page.Descriptions[f.ID]
 		}
@@ -169,7 +150,7 @@ func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, 
 		}
 		bySite[f.Site] = append(bySite[f.Site], fv)
 	}
-	v.Events = FormatCount(events)
+	v.Events = feed.FormatCount(events)
 	v.Size = FormatBytes(size)
 
 	charts := opts.Charts

@@ -9,6 +9,8 @@ import (
 	"time"
 
 	"golang.org/x/term"
+
+	"heliocal/feed"
 )
 
 // Progress reports a publish to a writer (the CLI passes stderr): a progress
@@ -115,9 +117,9 @@ func Summary(st Stats, dir string) string {
 		fmt.Fprintf(&b, "shard %s: ", st.Shard)
 	}
 	fmt.Fprintf(&b, "%s %s (%s written, %s unchanged), %s events, %s in %.2f s to %s",
-		FormatCount(st.Feeds), plural(st.Feeds, "feed", "feeds"),
-		FormatCount(st.FeedsWritten), FormatCount(st.FeedsUnchanged),
-		FormatCount(st.Events), FormatBytes(st.Bytes), st.Elapsed.Seconds(), displayDir(dir))
+		feed.FormatCount(st.Feeds), plural(st.Feeds, "feed", "feeds"),
+		feed.FormatCount(st.FeedsWritten), feed.FormatCount(st.FeedsUnchanged),
+		feed.FormatCount(st.Events), FormatBytes(st.Bytes), st.Elapsed.Seconds(), displayDir(dir))
 	if st.Shard.Sharded() {
 		switch st.Index {
 		case IndexPending:

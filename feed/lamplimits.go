@@ -73,11 +73,11 @@ func lampLimitGaps(f *config.Feed, cal *Calendar) []LampLimitGap {
 				if !evening {
 					at = e.End
 				}
-				u := at.Unix()
-				_, off := z.at(u)
-				if floorDiv(u+off, secondsPerDay)*secondsPerDay != e.Date.Unix() {
+				if z.date(at) != e.Date {
 					continue
 				}
+				u := at.Unix()
+				_, off := z.at(u)
 				of := time.Duration(daySeconds(u+off)) * time.Second
 				if evening && of <= clock || !evening && of >= clock {
 					continue

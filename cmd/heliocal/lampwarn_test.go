@@ -221,3 +221,22 @@ func TestServeLampLimitWarning(t *testing.T) {
 		t.Errorf("a refresh with the same limits logged them again:\n%s", strings.Join(got, "\n"))
 	}
 }
+
+// The built-in demo, which the README's first command publishes, shows its
+// lighting limits doing what they say whatever the day it is run: no
+// lighting-limit warning for a run on the first of any month.
+func TestDemoHasNoLampLimitWarning(t *testing.T) {
+	c := config.Demo()
+	for m := time.January; m <= time.December; m++ {
+		now := time.Date(2027, m, 1, 12, 0, 0, 0, time.UTC)
+		r, _, err := checkConfig(context.Background(), c, config.Source{}, now)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, w := range r.Warnings {
+			if strings.Contains(w, "lamps") {
+				t.Errorf("run on %s: %s", now.Format("2 Jan 2006"), w)
+			}
+		}
+	}
+}

@@ -17,8 +17,16 @@ type LampLimitGap struct {
 	Kind      config.Kind
 	Option    string         // "latest_off" or "earliest_on"
 	Value     string         // the clock time, "18:45"
-	Dates     int            // how many dates
 	Stretches [][2]time.Time // the runs of consecutive dates: first, last
+}
+
+// Dates is how many dates the limit does nothing on: those of its stretches.
+func (g LampLimitGap) Dates() int {
+	n := 0
+	for _, st := range g.Stretches {
+		n += int(st[1].Sub(st[0])/(24*time.Hour)) + 1
+	}
+	return n
 }
 
 // Evening says whether the gap is a latest_off's (the evening lamps').
@@ -87,9 +95,8 @@ func lampLimitGaps(f *config.Feed, cal *Calendar) []LampLimitGap {
 				} else {
 					g.Stretches = append(g.Stretches, [2]time.Time{e.Date, e.Date})
 				}
-				g.Dates++
 			}
-			if g.Dates > 0 {
+			if len(g.Stretches) > 0 {
 				out = append(out, g)
 			}
 		}
@@ -104,7 +111,7 @@ func lampLimitGaps(f *config.Feed, cal *Calendar) []LampLimitGap {
 // and 10 Sep 2027"), which "between" the first and the last would make
 // seem a year of dates.
 func (g LampLimitGap) DatesText() string {
-	n, stretches := g.Dates, g.Stretches
+	n, stretches := g.Dates(), g.Stretches
 	first, last := stretches[0][0], stretches[len(stretches)-1][1]
 	switch {
 	case n == 1:

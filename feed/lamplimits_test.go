@@ -36,7 +36,7 @@ func TestLampLimitGapInDescription(t *testing.T) {
 			t.Errorf("latest_off %s: description\n%s\nwant it to hold %q once", c.latestOff, cal.Description, c.want)
 		}
 		gaps := cal.LampLimitGaps // as the calendar keeps them
-		if want := strings.Contains(c.want, "Where"); (len(gaps) == 1) != want || want && (gaps[0].Dates != 3 || !gaps[0].Evening()) {
+		if want := strings.Contains(c.want, "Where"); (len(gaps) == 1) != want || want && (gaps[0].Dates() != 3 || !gaps[0].Evening()) {
 			t.Errorf("latest_off %s: gaps %+v", c.latestOff, gaps)
 		}
 	}

@@ -13,13 +13,25 @@ import (
 )
 
 // Chunk is the part of a long date range that EventChunks computes at once:
-// the local dates First..Last (00:00 UTC civil dates) with their events
-// (sorted by Start) and notes (sorted by date), as EventsFor gives them for
-// those dates.
+// the local dates First..Last (00:00 UTC civil dates) with their events and
+// notes (sorted by date), as EventsFor gives them for those dates. The
+// events are as computed, kind after kind: Order lists their positions in
+// the order of Start (Events[Order[0]] first), the order EventsFor gives
+// them in. A Chunk without Order has its events in that order already.
 type Chunk struct {
 	First, Last time.Time
 	Events      []Event
+	Order       []int32
 	Notes       []Note
+}
+
+// Sort puts c's events in the order of Order, in place, moving each once,
+// and drops Order.
+func (c *Chunk) Sort() {
+	if c.Order != nil {
+		permute(c.Events, c.Order)
+		c.Order = nil
+	}
 }
 
 // ChunkDays is the number of dates EventChunks computes at once: long
@@ -68,7 +80,7 @@ func (s *Sky) EventChunks(ctx context.Context, p Place, specs []config.KindSpec,
 		if end.After(last) {
 			end = last
 		}
-		events, notes, err := s.eventsFor(ctx, p, specs, d, end, buf)
+		events, order, notes, err := s.computeEvents(ctx, p, specs, d, end, buf)
 		if err != nil {
 			return Chunk{}, err
 		}
@@ -81,7 +93,7 @@ func (s *Sky) EventChunks(ctx context.Context, p Place, specs []config.KindSpec,
 				return Chunk{}, err
 			}
 		}
-		return Chunk{First: d, Last: end, Events: events, Notes: notes}, nil
+		return Chunk{First: d, Last: end, Events: events, Order: order, Notes: notes}, nil
 	}
 	return inOrder(ctx, len(starts), min(runtime.GOMAXPROCS(0), len(starts)), compute, fn)
 }

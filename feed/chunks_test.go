@@ -51,6 +51,7 @@ func TestEventChunksAsWhole(t *testing.T) {
 		chunks := 0
 		err = sky.EventChunks(context.Background(), p, specs, first, last, func(c Chunk) error {
 			chunks++
+			c.Sort()
 			gotEv, gotNotes = append(gotEv, c.Events...), append(gotNotes, c.Notes...)
 			return nil
 		})
@@ -92,6 +93,7 @@ func TestEventChunksOrderAndStop(t *testing.T) {
 	defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(4))
 	want := first
 	err = sky.EventChunks(context.Background(), p, specs, first, last, func(c Chunk) error {
+		c.Sort()
 		if !c.First.Equal(want) || len(c.Events) == 0 || !c.Events[0].Date.Equal(c.First) || !c.Events[len(c.Events)-1].Date.Equal(c.Last) {
 			t.Fatalf("chunk %s..%s (events %d), want it to start on %s", c.First.Format(time.DateOnly), c.Last.Format(time.DateOnly), len(c.Events), want.Format(time.DateOnly))
 		}
@@ -125,17 +127,22 @@ func TestEventChunksOrderAndStop(t *testing.T) {
 	}
 }
 
-// sortByKey and orderByKey give what a stable sort gives, for runs in
-// order, out of order, empty, with ties within and across runs, and with
-// keys bunched in a few places (crowded buckets).
+// sortByKey and orderRuns give what a stable sort gives, for runs in
+// order, out of order, empty, with ties within and across runs, with keys
+// bunched in a few places (crowded buckets), and more runs than
+// orderRuns's ring holds.
 func TestSortByKey(t *testing.T) {
 	type item struct{ key, id int64 }
 	var scratch orderScratch
 	r := rand.New(rand.NewPCG(1, 2))
 	for trial := range 500 {
 		var xs []item
-		bounds := []int{0}
-		for run := range r.IntN(12) {
+		bounds := []int32{0}
+		runs := r.IntN(14)
+		if trial%7 == 3 {
+			runs = r.IntN(50)
+		}
+		for run := range runs {
 			n := r.IntN(30)
 			k := int64(r.IntN(50))
 			for range n {
@@ -154,7 +161,7 @@ func TestSortByKey(t *testing.T) {
 				}
 				xs = append(xs, item{k, int64(len(xs))})
 			}
-			bounds = append(bounds, len(xs))
+			bounds = append(bounds, int32(len(xs)))
 		}
 		want := slices.Clone(xs)
 		slices.SortStableFunc(want, func(a, b item) int { return cmp.Compare(a.key, b.key) })
@@ -162,8 +169,14 @@ func TestSortByKey(t *testing.T) {
 		if !slices.Equal(got, want) {
 			t.Fatalf("runs %v of %v: sorted %v, want %v", bounds, xs, got, want)
 		}
-		got = slices.Clone(xs)
-		orderByKey(got, &scratch, func(x *item) int64 { return x.key })
+		events := make([]Event, len(xs))
+		for i, x := range xs {
+			events[i].Start = time.Unix(0, x.key)
+		}
+		got = got[:0]
+		for _, i := range orderRuns(events, bounds, &scratch) {
+			got = append(got, xs[i])
+		}
 		if !slices.Equal(got, want) {
 			t.Fatalf("runs %v of %v: merged %v, want %v", bounds, xs, got, want)
 		}
@@ -171,9 +184,7 @@ func TestSortByKey(t *testing.T) {
 	// keys as far apart as int64 allows (the buckets' width is then 2⁶³)
 	xs := []item{{math.MaxInt64, 0}, {0, 1}, {math.MinInt64, 2}, {math.MaxInt64, 3}, {math.MinInt64, 4}}
 	want := []item{{math.MinInt64, 2}, {math.MinInt64, 4}, {0, 1}, {math.MaxInt64, 0}, {math.MaxInt64, 3}}
-	got := slices.Clone(xs)
-	orderByKey(got, &scratch, func(x *item) int64 { return x.key })
-	if !slices.Equal(got, want) {
+	if got := sortByKey(slices.Clone(xs), nil, func(x *item) int64 { return x.key }); !slices.Equal(got, want) {
 		t.Errorf("extreme keys: %v, want %v", got, want)
 	}
 }

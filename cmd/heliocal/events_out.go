@@ -53,11 +53,12 @@ type jsonSink struct {
 	buf      []byte
 	events   int
 	notes    []byte
-	held     []feed.Event
-	merged   []feed.Event
-	kinds    []jsonKind // the kinds met so far, looked up in order
-	last     int        // index + 1 in kinds of the last event's kind; 0: none yet
-	lastDir  int        // the last event's direction (dirIndex)
+	held     []feed.Event // in order of start
+	spare    []feed.Event // the next chunk's held events are gathered here
+	ident    []int32      // the order of a chunk without one
+	kinds    []jsonKind   // the kinds met so far, looked up in order
+	last     int          // index + 1 in kinds of the last event's kind; 0: none yet
+	lastDir  int          // the last event's direction (dirIndex)
 	days     dayCache
 }
 
@@ -103,24 +104,49 @@ func (j *jsonSink) chunk(c feed.Chunk) error {
 	}
 	loc := j.site.TimeZone.Location
 	next := astro.DateStart(loc, c.Last.Year(), c.Last.Month(), c.Last.Day()+1)
-	evs := c.Events
-	if len(j.held) > 0 {
-		j.merged = mergeByStart(j.merged[:0], j.held, evs)
-		evs = j.merged
+	evs, order := c.Events, c.Order
+	if order == nil {
+		for len(j.ident) < len(evs) {
+			j.ident = append(j.ident, int32(len(j.ident)))
+		}
+		order = j.ident[:len(evs)]
 	}
-	cut := len(evs)
-	for cut > 0 && !evs[cut-1].Start.Before(next) {
+	cut := len(order)
+	for cut > 0 && !evs[order[cut-1]].Start.Before(next) {
 		cut--
 	}
-	for i := range evs[:cut] {
-		j.event(&evs[i])
-		if len(j.buf) >= jsonFlush {
-			if err := j.flush(); err != nil {
+	// the events held back from the chunk before go in among these,
+	// before an event that starts at the same instant
+	held := j.held
+	for _, i := range order[:cut] {
+		e := &evs[i]
+		for len(held) > 0 && !e.Start.Before(held[0].Start) {
+			if err := j.write(&held[0]); err != nil {
 				return err
 			}
+			held = held[1:]
+		}
+		if err := j.write(e); err != nil {
+			return err
 		}
 	}
-	j.held = append(j.held[:0], evs[cut:]...)
+	for len(held) > 0 && held[0].Start.Before(next) {
+		if err := j.write(&held[0]); err != nil {
+			return err
+		}
+		held = held[1:]
+	}
+	// held back now: the rest of those and the events that start after
+	// this chunk's last date, merged by start
+	keep, tail := j.spare[:0], order[cut:]
+	for len(held) > 0 || len(tail) > 0 {
+		if len(tail) == 0 || len(held) > 0 && !evs[tail[0]].Start.Before(held[0].Start) {
+			keep, held = append(keep, held[0]), held[1:]
+		} else {
+			keep, tail = append(keep, evs[tail[0]]), tail[1:]
+		}
+	}
+	j.held, j.spare = keep, j.held[:0]
 	for i := range c.Notes {
 		obj, err := json.MarshalIndent(toJSONNote(c.Notes[i]), "    ", "  ")
 		if err != nil {
@@ -135,17 +161,13 @@ func (j *jsonSink) chunk(c feed.Chunk) error {
 	return j.flush()
 }
 
-// mergeByStart appends the merge of a and b (each sorted by Start; a first
-// on ties) to dst.
-func mergeByStart(dst, a, b []feed.Event) []feed.Event {
-	for len(a) > 0 && len(b) > 0 {
-		if b[0].Start.Before(a[0].Start) {
-			dst, b = append(dst, b[0]), b[1:]
-		} else {
-			dst, a = append(dst, a[0]), a[1:]
-		}
+// write appends one event object, and hands the buffer on once it is full.
+func (j *jsonSink) write(e *feed.Event) error {
+	j.event(e)
+	if len(j.buf) >= jsonFlush {
+		return j.flush()
 	}
-	return append(append(dst, a...), b...)
+	return nil
 }
 
 func (j *jsonSink) flush() error {
@@ -471,6 +493,7 @@ func newCSVSink(w *bufio.Writer, s *config.Site) *csvSink {
 }
 
 func (c *csvSink) chunk(ch feed.Chunk) error {
+	ch.Sort()
 	if err := writeEventsCSVRows(c.cw, c.loc, ch.Events, ch.Notes); err != nil {
 		return err
 	}
@@ -507,6 +530,7 @@ func newTableSink(w *bufio.Writer, s *config.Site) *tableSink {
 }
 
 func (t *tableSink) chunk(ch feed.Chunk) error {
+	ch.Sort()
 	t.rows = t.rows[:0]
 	if !t.header {
 		t.rows = append(t.rows, [4]string{"DATE", "TIME", "KIND", "DETAILS"})

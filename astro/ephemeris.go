@@ -378,7 +378,7 @@ func (e *Ephemeris) AppendSunCrossings(dst [][]Crossing, o Observer, altitudes [
 		sines[i] = math.Sin(h * deg2rad)
 		bufs[i] = bufs[i][:0]
 	}
-	e.sun.crossingsMany(st, ext, sines, a, b, bufs)
+	sc.mids = e.sun.crossingsMany(st, ext, sines, a, b, bufs, sc.mids)
 	for len(dst) < len(altitudes) {
 		dst = append(dst, nil)
 	}
@@ -409,6 +409,7 @@ func (e *Ephemeris) AppendSunCrossings(dst [][]Crossing, o Observer, altitudes [
 type scratch struct {
 	ext  []extremum
 	bufs [][]crossing
+	mids []midDec
 }
 
 var crossingScratch = sync.Pool{New: func() any { return new(scratch) }}

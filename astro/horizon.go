@@ -261,7 +261,11 @@ func (st *site) sinAltitudeSC(H, sd, cd, dist float64) float64 {
 	// compiler does not inline topoVector
 	// only y² enters, as (dist·cd)²·(1 − cos²H): a cosine costs half
 	// a sine and cosine
-	cH := math.Cos(H)
+	return st.sinAltitudeCos(math.Cos(H), sd, cd, dist)
+}
+
+// sinAltitudeCos is sinAltitudeSC with the cosine of the hour angle given.
+func (st *site) sinAltitudeCos(cH, sd, cd, dist float64) float64 {
 	dc := dist * cd
 	x := dc*cH - st.rhoCos
 	z := dist*sd - st.rhoSin
@@ -288,6 +292,50 @@ func (tr *track) sinAltitude(st *site, sec float64) float64 {
 		return st.sinAltitudeSC(H, interp(tr.sd, k, &w), interp(tr.cd, k, &w), interp(tr.dist, k, &w))
 	}
 	return st.sinAltitudeFrom(H, interp(tr.dec, k, &w), interp(tr.dist, k, &w))
+}
+
+// sinAltitudeNear is sinAltitude at sec where the local hour angle is
+// near target, whose cosine and sine ct and st are known (a crossing's
+// estimate): within 0.01 rad of it, the hour angle's cosine is taken from
+// theirs by the angle-addition formulas and short series in the
+// difference (cosNear) instead of by math.Cos, a third of an evaluation.
+func (tr *track) sinAltitudeNear(s *site, sec, target, ct, st float64) float64 {
+	k, w := tr.weights(sec)
+	H := tr.ghaFrom(sec, k, &w) + s.lon
+	cH, ok := cosNear(H, target, ct, st)
+	if !ok {
+		cH = math.Cos(H)
+	}
+	if tr.sd != nil {
+		return s.sinAltitudeCos(cH, interp(tr.sd, k, &w), interp(tr.cd, k, &w), interp(tr.dist, k, &w))
+	}
+	sd, cd := math.Sincos(interp(tr.dec, k, &w))
+	return s.sinAltitudeCos(cH, sd, cd, interp(tr.dist, k, &w))
+}
+
+// 2π in three parts, the first two with their low 28 bits zero, so that n
+// times them is exact for |n| < 2²⁸ (math.Cos's split of π/4, times 8).
+// Hour angles within MinTime..MaxTime stay below 10⁶ rad: n < 2¹⁸.
+const (
+	twoPiA = 8 * 7.85398125648498535156e-1
+	twoPiB = 8 * 3.77489470793079817668e-8
+	twoPiC = 8 * 2.69515142907905952645e-15
+)
+
+// cosNear returns cos H from the cosine ct and sine st of an angle target
+// when H lies within 0.01 rad of it modulo 2π (else false). H is reduced
+// in the three parts of 2π as math.Cos reduces its argument, so that the
+// difference d keeps its digits; the series of cos d and sin d are cut
+// where the next term is below 1e-17. The result agrees with math.Cos(H)
+// to a few units of the last place (TestCosNear).
+func cosNear(H, target, ct, st float64) (float64, bool) {
+	n := math.Floor((H-target)*(1/(2*math.Pi)) + 0.5)
+	d := ((H - n*twoPiA) - n*twoPiB) - n*twoPiC - target
+	if !(math.Abs(d) <= 0.01) {
+		return 0, false
+	}
+	d2 := d * d
+	return ct*(1-d2*(0.5-d2*(1.0/24-d2*(1.0/720)))) - st*d*(1-d2*(1.0/6-d2*(1.0/120))), true
 }
 
 // extremum is a node of the altitude curve: an upper or lower culmination
@@ -465,16 +513,17 @@ type crossing struct {
 // span covering [a, b]).
 func (tr *track) crossings(st *site, ext []extremum, sinH0, a, b float64, out []crossing) []crossing {
 	outs := [1][]crossing{out}
-	tr.crossingsMany(st, ext, []float64{sinH0}, a, b, outs[:])
+	tr.crossingsMany(st, ext, []float64{sinH0}, a, b, outs[:], nil)
 	return outs[0]
 }
 
 // crossingsMany appends to outs[i] the crossings of the altitude whose sine
 // is sinH0s[i] in [a, b) (Unix s), in order, using the extrema ext (from
-// tr.extrema over a span covering [a, b]). It takes the intervals between
-// extrema one by one and solves every threshold crossed in each, so that
-// what the estimates share (the declination at the interval's middle) is
-// computed once per interval.
+// tr.extrema over a span covering [a, b]). Between two extrema the
+// altitude is monotonic, so each threshold is crossed at most once in each
+// interval; what the estimates of one interval share (the declination at
+// its middle) is computed once, in mids (working memory, returned for the
+// next call: len(ext)−1 entries are used).
 //
 // The hour-angle estimate misses the crossing by a few seconds (the
 // declination taken at the interval's middle, the culmination off the
@@ -485,30 +534,42 @@ func (tr *track) crossings(st *site, ext []extremum, sinH0, a, b float64, out []
 // first Newton step ends the search. The solver keeps its bracket: a poor
 // start only costs steps. This is done for the Sun's track (carry); the
 // Moon's estimates miss by more, and its Newton step's slope is rougher.
-func (tr *track) crossingsMany(st *site, ext []extremum, sinH0s []float64, a, b float64, outs [][]crossing) {
-	// misses[2h+r]: threshold h, rising r (1) or setting (0)
-	misses := make([]miss, 2*len(sinH0s))
-	for i := 0; i+1 < len(ext); i++ {
-		e0, e1 := ext[i], ext[i+1]
-		if e1.t < a || e0.t >= b {
-			continue
-		}
-		var sd, cd float64
-		known := false
-		for h, sinH0 := range sinH0s {
+// The thresholds are taken one after the other, each over all intervals,
+// so that a threshold's misses and its list stay at hand.
+func (tr *track) crossingsMany(st *site, ext []extremum, sinH0s []float64, a, b float64, outs [][]crossing, mids []midDec) []midDec {
+	if len(ext) < 2 {
+		return mids
+	}
+	// the intervals i (between ext[i] and ext[i+1]) that reach into [a, b)
+	i0, i1 := 0, len(ext)-1
+	for i0 < i1 && ext[i0+1].t < a {
+		i0++
+	}
+	for i1 > i0 && ext[i1-1].t >= b {
+		i1--
+	}
+	mids = slices.Grow(mids[:0], len(ext)-1)[:len(ext)-1]
+	clear(mids)
+	for h, sinH0 := range sinH0s {
+		out := outs[h]
+		var up, down miss // rising, setting
+		for i := i0; i < i1; i++ {
+			e0, e1 := &ext[i], &ext[i+1]
 			f0, f1 := e0.sinH-sinH0, e1.sinH-sinH0
 			if !(f0 < 0 && f1 > 0) && !(f0 > 0 && f1 < 0) {
 				continue
 			}
-			if !known {
-				sd, cd = math.Sincos(tr.decAt(0.5 * (e0.t + e1.t)))
-				known = true
+			md := &mids[i]
+			if !md.known {
+				md.sd, md.cd = math.Sincos(tr.decAt(0.5 * (e0.t + e1.t)))
+				md.known = true
 			}
 			rising := f1 > 0
-			g, slope := tr.estimateFrom(st, sinH0, e0, e1, rising, sd, cd)
-			m := &misses[2*h]
+			est := tr.estimateFrom(st, sinH0, e0, e1, rising, md.sd, md.cd)
+			g, slope := est.g, est.slope
+			m := &down
 			if rising {
-				m = &misses[2*h+1]
+				m = &up
 			}
 			start := g
 			if slope != 0 && tr.carry {
@@ -516,17 +577,37 @@ func (tr *track) crossingsMany(st *site, ext []extremum, sinH0s []float64, a, b 
 					start = c
 				}
 			}
-			t := tr.solve(st, sinH0, e0.t, f0, e1.t, f1, start, slope)
+			var fs float64
+			if slope != 0 {
+				// the hour angle at start is near the estimate's
+				target, sinTarget := est.H0, est.s0
+				if rising {
+					target, sinTarget = -target, -sinTarget
+				}
+				fs = tr.sinAltitudeNear(st, start, target, est.c, sinTarget) - sinH0
+			} else {
+				fs = tr.sinAltitude(st, start) - sinH0
+			}
+			t := tr.solve(st, sinH0, e0.t, f0, e1.t, f1, start, fs, slope)
 			if slope != 0 {
 				m.add(i, t-g)
 			} else {
 				*m = miss{}
 			}
 			if t >= a && t < b {
-				outs[h] = append(outs[h], crossing{t: t, rising: rising})
+				out = append(out, crossing{t: t, rising: rising})
 			}
 		}
+		outs[h] = out
 	}
+	return mids
+}
+
+// midDec is the sine and cosine of the declination at the middle of an
+// interval between two extrema, once known.
+type midDec struct {
+	sd, cd float64
+	known  bool
 }
 
 // miss is what a threshold's hour-angle estimates missed its last two
@@ -556,60 +637,64 @@ func (m *miss) add(i int, d float64) {
 }
 
 // guess estimates a crossing time within (e0, e1) by the hour-angle
-// formula (see estimate).
+// formula with the declination at the middle of the interval (see
+// estimateFrom).
 func (tr *track) guess(st *site, sinH0 float64, e0, e1 extremum, rising bool) float64 {
-	g, _ := tr.estimate(st, sinH0, e0, e1, rising)
-	return g
-}
-
-// estimate estimates a crossing time within (e0, e1) by the hour-angle
-// formula with the declination at the middle of the interval, and returns
-// the rate of change of the sine of the altitude there (per second), or 0
-// when the formula does not apply. (A second pass with the declination at
-// the estimate saves less than it costs: the solver's first step does it.)
-func (tr *track) estimate(st *site, sinH0 float64, e0, e1 extremum, rising bool) (g, slope float64) {
 	sd, cd := math.Sincos(tr.decAt(0.5 * (e0.t + e1.t)))
-	return tr.estimateFrom(st, sinH0, e0, e1, rising, sd, cd)
+	return tr.estimateFrom(st, sinH0, &e0, &e1, rising, sd, cd).g
 }
 
-// estimateFrom is estimate with the sine and cosine of the declination at
-// the middle of the interval given.
-func (tr *track) estimateFrom(st *site, sinH0 float64, e0, e1 extremum, rising bool, sd, cd float64) (g, slope float64) {
+// estimate is a crossing's estimated instant g within (e0, e1), with the
+// rate of change of the sine of the altitude there (per second; 0 when the
+// formula does not apply) and the hour angle of the estimate: cos H0 = c,
+// sin H0 = s0 (H = −H0 when rising, +H0 when setting).
+type estimate struct {
+	g, slope  float64
+	H0, c, s0 float64
+}
+
+// estimateFrom estimates a crossing time within (e0, e1) by the hour-angle
+// formula with the declination at the middle of the interval, whose sine
+// and cosine are sd and cd. (A second pass with the declination at the
+// estimate saves less than it costs: the solver's first step does it.)
+func (tr *track) estimateFrom(st *site, sinH0 float64, e0, e1 *extremum, rising bool, sd, cd float64) estimate {
 	mid := 0.5 * (e0.t + e1.t)
 	den := st.cosLat * cd
 	if den == 0 {
-		return mid, 0
+		return estimate{g: mid}
 	}
 	c := (sinH0 - st.sinLat*sd) / den
 	if c < -1 || c > 1 {
-		return mid, 0
+		return estimate{g: mid}
 	}
 	H0 := math.Acos(c)
+	var g float64
 	if rising { // from the lower to the upper culmination: H = −H0
 		g = e1.t - H0/tr.rate
 	} else {
 		g = e0.t + H0/tr.rate
 	}
 	if !(g > e0.t && g < e1.t) {
-		return mid, 0
+		return estimate{g: mid}
 	}
 	// d(sin h)/dt = −cos φ cos δ sin H · dH/dt, H = ∓H0, sin H0 =
 	// √(1 − c²), written (1 − c)(1 + c) to keep its digits near c = ±1
-	slope = den * math.Sqrt((1-c)*(1+c)) * tr.rate
+	s0 := math.Sqrt((1 - c) * (1 + c))
+	slope := den * s0 * tr.rate
 	if !rising {
 		slope = -slope
 	}
-	return g, slope
+	return estimate{g: g, slope: slope, H0: H0, c: c, s0: s0}
 }
 
 // solve finds the root of sinAltitude − sinH0 in the bracket [a, b] (fa, fb
-// of opposite signs) from the estimate g and the slope there (0 if
-// unknown): secant steps kept inside the shrinking bracket, bisection when
-// they fail. It stops when a step is below 0.05 s: the secant method's
-// next error is then below 0.1 ms.
-func (tr *track) solve(st *site, sinH0, a, fa, b, fb, g, slope float64) float64 {
+// of opposite signs) from the estimate g, where it is fg, and the slope
+// there (0 if unknown): secant steps kept inside the shrinking bracket,
+// bisection when they fail. It stops when a step is below 0.05 s: the
+// secant method's next error is then below 0.1 ms.
+func (tr *track) solve(st *site, sinH0, a, fa, b, fb, g, fg, slope float64) float64 {
 	f := func(t float64) float64 { return tr.sinAltitude(st, t) - sinH0 }
-	x0, f0 := g, f(g)
+	x0, f0 := g, fg
 	if f0 == 0 {
 		return x0
 	}

@@ -389,15 +389,15 @@ func (e *Ephemeris) AppendSunCrossings(dst [][]Crossing, o Observer, altitudes [
 	for i, buf := range bufs {
 		cs := slices.Grow(dst[i][:0], len(buf))
 		for _, c := range buf {
-			t := timeFromUnix(c.t)
-			if ns := t.UnixNano(); ns < fromNs || ns >= toNs {
+			us := unixMicros(c.t)
+			if ns := us * 1000; ns < fromNs || ns >= toNs {
 				continue
 			}
 			d := Setting
 			if c.rising {
 				d = Rising
 			}
-			cs = append(cs, Crossing{Time: t, Direction: d})
+			cs = append(cs, Crossing{Time: time.UnixMicro(us).UTC(), Direction: d})
 		}
 		dst[i] = cs
 	}

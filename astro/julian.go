@@ -63,7 +63,18 @@ func unixSeconds(t time.Time) float64 {
 
 // timeFromUnix converts float Unix seconds to a UTC time rounded to the microsecond.
 func timeFromUnix(sec float64) time.Time {
-	whole := math.Floor(sec)
-	us := math.Round((sec - whole) * 1e6)
-	return time.Unix(int64(whole), int64(us)*1000).UTC() // 1e6 µs is the next second
+	return time.UnixMicro(unixMicros(sec)).UTC()
+}
+
+// unixMicros rounds float Unix seconds to whole microseconds: the whole
+// seconds (rounded down) and the fraction's microseconds, rounded, so that
+// the rounding does not depend on the size of sec. The whole seconds are
+// taken by a conversion to an integer, corrected for negative sec, which is
+// math.Floor's value for any |sec| < 2⁶³.
+func unixMicros(sec float64) int64 {
+	whole := int64(sec)
+	if float64(whole) > sec {
+		whole--
+	}
+	return whole*1e6 + int64(math.Round((sec-float64(whole))*1e6)) // 1e6 µs is the next second
 }

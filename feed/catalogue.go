@@ -136,12 +136,12 @@ func (sky *Sky) Calendar(ctx context.Context, s *config.Site, f *config.Feed, fi
 	if opts.FeedURL != nil {
 		cal.URL = opts.FeedURL(f.ID)
 	}
-	entries, text, err := sky.feedEntries(ctx, s, f, first, last)
+	entries, text, gaps, err := sky.feedEntries(ctx, s, f, first, last)
 	if err != nil {
 		return nil, fmt.Errorf("feed %q: %w", f.ID, err)
 	}
 	cal.Entries, cal.text = entries, text
-	noteLampLimitGaps(s, f, cal)
+	noteLampLimitGaps(s, f, cal, gaps.gaps, gaps.known)
 	return cal, nil
 }
 
@@ -249,6 +249,9 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 		}
 		w.flushText()
 		w.out = keep(w.out, from, spec)
+		if col.gaps != nil && spec.Kind.Name == config.KindLighting {
+			col.gaps.gaps = appendLimitGaps(col.gaps.gaps, spec, w.out[from:], w.site.zone)
+		}
 		// each kind's events are done with once they are entries
 		col.events, col.notes = col.events[:0], col.notes[:0]
 	}

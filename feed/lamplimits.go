@@ -51,54 +51,79 @@ func lampLimitGaps(f *config.Feed, cal *Calendar) []LampLimitGap {
 	var out []LampLimitGap
 	z := newZoneCache(cal.Site.Location)
 	for _, k := range f.Kinds {
+		if k.Kind.Name == config.KindLighting {
+			out = appendLimitGaps(out, k, cal.Entries, z)
+		}
+	}
+	return out
+}
+
+// ownLimitGaps reports whether the limits of each lighting kinds entry of
+// feed f can be checked against its own entries alone (appendLimitGaps
+// as the entries are written): no other kinds entry of f writes entries
+// of the same kind, which lampLimitGaps would count for it too.
+func ownLimitGaps(f *config.Feed) bool {
+	for i, k := range f.Kinds {
 		if k.Kind.Name != config.KindLighting {
 			continue
 		}
-		name := k.Kind.String()
-		for _, lim := range []struct {
-			key, value, part string
-		}{{"latest_off", k.LatestOff, partEvening}, {"earliest_on", k.EarliestOn, partMorning}} {
-			if lim.value == "" {
+		for _, o := range f.Kinds[i+1:] {
+			if o.Kind == k.Kind {
+				return false
+			}
+		}
+	}
+	return true
+}
+
+// appendLimitGaps appends to out the limits of the lighting kinds entry k
+// that do nothing on some of the dates of es, entries in the order of
+// their dates (those of k's kind count; z is the site's zone).
+func appendLimitGaps(out []LampLimitGap, k config.KindSpec, es []Entry, z *zoneCache) []LampLimitGap {
+	name := k.Kind.String()
+	for _, lim := range [...]struct {
+		key, value, part string
+	}{{"latest_off", k.LatestOff, partEvening}, {"earliest_on", k.EarliestOn, partMorning}} {
+		if lim.value == "" {
+			continue
+		}
+		clock, err := config.ParseClock(lim.value)
+		if err != nil {
+			continue // config has refused it already
+		}
+		evening := lim.part == partEvening
+		if evening != (clock > 12*time.Hour) || clock == 12*time.Hour {
+			continue
+		}
+		g := LampLimitGap{Kind: k.Kind, Option: lim.key, Value: lim.value}
+		for i := range es {
+			e := &es[i]
+			if e.Kind != name || e.AllDay || e.Facts.Note || e.Facts.Part != lim.part {
 				continue
 			}
-			clock, err := config.ParseClock(lim.value)
-			if err != nil {
-				continue // config has refused it already
+			// the clock time, on the entry's date, of the end the limit
+			// does not move: an evening's start, a morning's end
+			at := e.Start
+			if !evening {
+				at = e.End
 			}
-			evening := lim.part == partEvening
-			if evening != (clock > 12*time.Hour) || clock == 12*time.Hour {
+			if z.date(at) != e.Date {
 				continue
 			}
-			g := LampLimitGap{Kind: k.Kind, Option: lim.key, Value: lim.value}
-			for i := range cal.Entries {
-				e := &cal.Entries[i]
-				if e.Kind != name || e.AllDay || e.Facts.Note || e.Facts.Part != lim.part {
-					continue
-				}
-				// the clock time, on the entry's date, of the end the limit
-				// does not move: an evening's start, a morning's end
-				at := e.Start
-				if !evening {
-					at = e.End
-				}
-				if z.date(at) != e.Date {
-					continue
-				}
-				u := at.Unix()
-				_, off := z.at(u)
-				of := time.Duration(daySeconds(u+off)) * time.Second
-				if evening && of <= clock || !evening && of >= clock {
-					continue
-				}
-				if k := len(g.Stretches) - 1; k >= 0 && e.Date.Sub(g.Stretches[k][1]) <= 24*time.Hour {
-					g.Stretches[k][1] = e.Date
-				} else {
-					g.Stretches = append(g.Stretches, [2]time.Time{e.Date, e.Date})
-				}
+			u := at.Unix()
+			_, off := z.at(u)
+			of := time.Duration(daySeconds(u+off)) * time.Second
+			if evening && of <= clock || !evening && of >= clock {
+				continue
 			}
-			if len(g.Stretches) > 0 {
-				out = append(out, g)
+			if k := len(g.Stretches) - 1; k >= 0 && e.Date.Sub(g.Stretches[k][1]) <= 24*time.Hour {
+				g.Stretches[k][1] = e.Date
+			} else {
+				g.Stretches = append(g.Stretches, [2]time.Time{e.Date, e.Date})
 			}
+		}
+		if len(g.Stretches) > 0 {
+			out = append(out, g)
 		}
 	}
 	return out
@@ -157,12 +182,17 @@ func (g LampLimitGap) lampLimitSentence() string {
 
 // noteLampLimitGaps keeps in cal.LampLimitGaps the limits of f that do
 // nothing on some of cal's dates, and adds to cal's description, after the
-// meaning of each lighting kind of f, the sentence of each of them.
-func noteLampLimitGaps(s *config.Site, f *config.Feed, cal *Calendar) {
+// meaning of each lighting kind of f, the sentence of each of them. gaps
+// are those limits when known (found as the entries were written,
+// known); lampLimitGaps finds them otherwise.
+func noteLampLimitGaps(s *config.Site, f *config.Feed, cal *Calendar, gaps []LampLimitGap, known bool) {
 	if !HasLampLimit(f) {
 		return
 	}
-	cal.LampLimitGaps = lampLimitGaps(f, cal)
+	if !known {
+		gaps = lampLimitGaps(f, cal)
+	}
+	cal.LampLimitGaps = gaps
 	for _, spec := range f.Kinds {
 		var add []string
 		for _, g := range cal.LampLimitGaps {

@@ -2,8 +2,10 @@ package feed
 
 import (
 	"context"
+	"reflect"
 	"strings"
 	"testing"
+	"time"
 
 	"heliocal/config"
 )
@@ -39,5 +41,48 @@ func TestLampLimitGapInDescription(t *testing.T) {
 		if want := strings.Contains(c.want, "Where"); (len(gaps) == 1) != want || want && (gaps[0].Dates() != 3 || !gaps[0].Evening()) {
 			t.Errorf("latest_off %s: gaps %+v", c.latestOff, gaps)
 		}
+	}
+}
+
+// The lighting limits a calendar finds as each lighting kind's entries are
+// written (from that kind's entries alone, before they are sorted among
+// the others) are those a scan of the finished calendar finds
+// (lampLimitGaps), over a year and a half at Havana (summer time; the
+// limit does nothing from mid-March), at 78.2° N (polar night and midnight
+// sun) and at 41.3° S, with evening, morning and both lamps, civil light,
+// a weekday filter and a minimum length; two kinds entries of one kind
+// are scanned as before, each counting the other's entries.
+func TestLampLimitGapsAsWritten(t *testing.T) {
+	sk := sky(t, "2026-12-20", "2028-06-20")
+	kind := func(name string) config.Kind { return mustKinds(t, name)[0] }
+	sites := []*config.Site{
+		site(t, "havana", 23.1, -82.4, "America/Havana"),
+		site(t, "isfjord", 78.2, 15.6, "Arctic/Longyearbyen"),
+		site(t, "ridge", -41.3, 174.8, "Pacific/Auckland"),
+	}
+	feeds := []*config.Feed{
+		{ID: "a", Kinds: []config.KindSpec{{Kind: kind("sunset")}, {Kind: kind("lighting:14h"), LatestOff: "18:45"},
+			{Kind: kind("lighting:16h"), Lamps: config.LampsMorning, EarliestOn: "06:30"}}},
+		{ID: "b", Kinds: []config.KindSpec{{Kind: kind("lighting:18h"), Lamps: config.LampsBoth, Natural: config.NaturalCivil,
+			LatestOff: "20:00", EarliestOn: "05:00", MinDuration: config.Duration(20 * time.Minute), Weekdays: []string{"mon", "thu"}}}},
+		{ID: "c", Kinds: []config.KindSpec{{Kind: kind("lighting:15h"), LatestOff: "19:00"}, {Kind: kind("lighting:15h"), Lamps: config.LampsMorning, EarliestOn: "07:00"}},
+			Plans: []config.Plan{{Title: "Round", Date: "every day", Start: "sunset"}}},
+	}
+	found := 0
+	for _, s := range sites {
+		for _, f := range feeds {
+			cal, err := sk.Calendar(context.Background(), s, f, date("2027-01-01"), date("2028-06-01"), Options{})
+			if err != nil {
+				t.Fatal(err)
+			}
+			want := lampLimitGaps(f, cal)
+			if !reflect.DeepEqual(cal.LampLimitGaps, want) {
+				t.Errorf("%s, feed %s: limits %+v as written, %+v by a scan of the calendar", s.ID, f.ID, cal.LampLimitGaps, want)
+			}
+			found += len(want)
+		}
+	}
+	if found < 4 {
+		t.Errorf("%d limits that do nothing on some dates: the cases test little", found)
 	}
 }

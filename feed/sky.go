@@ -597,6 +597,10 @@ type collector struct {
 	// scratch, when set, is where the working slices by date come from
 	// (times, durations, flags): a chunk's buffers
 	scratch *buffers
+	// gaps, when set, receives the lighting limits that do nothing on
+	// some dates, each lighting kind's found from its own entries as they
+	// are written (appendLimitGaps)
+	gaps *limitGaps
 
 	transits    []astro.Transit             // the Sun's transits over first-1..last, computed once (sunTransits)
 	noonsByDate map[time.Time]astro.Transit // the same by local date (noonOf)

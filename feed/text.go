@@ -267,6 +267,8 @@ func appendHM(b []byte, d time.Duration) []byte {
 		return append(b, byte('0'+m/10), byte('0'+m%10), ' ', 'm', 'i', 'n')
 	case h < 10:
 		b = append(b, byte('0'+h), ' ', 'h', ' ')
+	case h < 100: // a day length, a lamp period of half a day
+		b = append(b, byte('0'+h/10), byte('0'+h%10), ' ', 'h', ' ')
 	default:
 		b = append(strconv.AppendInt(b, h, 10), " h "...)
 	}

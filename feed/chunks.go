@@ -17,20 +17,23 @@ import (
 // notes (sorted by date), as EventsFor gives them for those dates. The
 // events are as computed, kind after kind: Order lists their positions in
 // the order of Start (Events[Order[0]] first), the order EventsFor gives
-// them in. A Chunk without Order has its events in that order already.
+// them in, and Spec[i] is the index in EventChunks's specs of the kind
+// that gave Events[Order[i]] (its Kind is that kind's, or one of the
+// kinds of a group: "seasons"). A Chunk without Order has its events in
+// that order already, and no Spec.
 type Chunk struct {
 	First, Last time.Time
 	Events      []Event
-	Order       []int32
+	Order, Spec []int32
 	Notes       []Note
 }
 
 // Sort puts c's events in the order of Order, in place, moving each once,
-// and drops Order.
+// and drops Order and Spec.
 func (c *Chunk) Sort() {
 	if c.Order != nil {
 		permute(c.Events, c.Order)
-		c.Order = nil
+		c.Order, c.Spec = nil, nil
 	}
 }
 
@@ -80,7 +83,7 @@ func (s *Sky) EventChunks(ctx context.Context, p Place, specs []config.KindSpec,
 		if end.After(last) {
 			end = last
 		}
-		events, order, notes, err := s.computeEvents(ctx, p, specs, d, end, buf)
+		events, order, spec, notes, err := s.computeEvents(ctx, p, specs, d, end, buf)
 		if err != nil {
 			return Chunk{}, err
 		}
@@ -93,7 +96,7 @@ func (s *Sky) EventChunks(ctx context.Context, p Place, specs []config.KindSpec,
 				return Chunk{}, err
 			}
 		}
-		return Chunk{First: d, Last: end, Events: events, Order: order, Notes: notes}, nil
+		return Chunk{First: d, Last: end, Events: events, Order: order, Spec: spec, Notes: notes}, nil
 	}
 	return inOrder(ctx, len(starts), min(runtime.GOMAXPROCS(0), len(starts)), compute, fn)
 }

@@ -51,6 +51,15 @@ func TestEventChunksAsWhole(t *testing.T) {
 		chunks := 0
 		err = sky.EventChunks(context.Background(), p, specs, first, last, func(c Chunk) error {
 			chunks++
+			if len(c.Order) != len(c.Events) || len(c.Spec) != len(c.Events) {
+				t.Fatalf("%s: chunk of %d events with %d in order and %d kinds", site.zone, len(c.Events), len(c.Order), len(c.Spec))
+			}
+			for o, i := range c.Order {
+				// each event's kind is its spec's, or one of a group's
+				if g, w := c.Events[i].Kind, specs[c.Spec[o]].Kind; g != w && w.Name != "seasons" && w.Name != "moon-phases" {
+					t.Fatalf("%s: a %s event given the kind %s", site.zone, g, w)
+				}
+			}
 			c.Sort()
 			gotEv, gotNotes = append(gotEv, c.Events...), append(gotNotes, c.Notes...)
 			return nil
@@ -174,8 +183,12 @@ func TestSortByKey(t *testing.T) {
 			events[i].Start = time.Unix(0, x.key)
 		}
 		got = got[:0]
-		for _, i := range orderRuns(events, bounds, &scratch) {
+		order, runOf := orderRuns(events, bounds, &scratch)
+		for o, i := range order {
 			got = append(got, xs[i])
+			if r := runOf[o]; i < bounds[r] || i >= bounds[r+1] {
+				t.Fatalf("runs %v of %v: position %d given run %d", bounds, xs, i, r)
+			}
 		}
 		if !slices.Equal(got, want) {
 			t.Fatalf("runs %v of %v: merged %v, want %v", bounds, xs, got, want)

@@ -351,8 +351,7 @@ type orderScratch struct {
 	order        []int32
 	starts, next []int32 // stableOrder's buckets
 	runs         []int32 // where each run of events starts, and the end
-	pos          []int32 // orderRuns: each run's next position
-	heads        []int64 // orderRuns: each run's next key
+	runOf        []int32 // orderRuns: the run of each position in order
 }
 
 // orderRuns returns the positions of events in the order of their Start,
@@ -364,63 +363,86 @@ type orderScratch struct {
 // the back, where it mostly belongs (a kind's next event is a day or half
 // a day later than the one taken, after those of the other kinds): a
 // comparison or two an event. A run out of order (or more runs than the
-// ring holds) sends all the positions through stableOrder instead. The
-// order is s's, overwritten by the next call.
-func orderRuns(events []Event, runs []int32, s *orderScratch) []int32 {
+// ring holds) sends all the positions through stableOrder instead. It
+// returns too the run of each position in order (runOf[i] is the run of
+// events[order[i]]). Both are s's, overwritten by the next call.
+func orderRuns(events []Event, runs []int32, s *orderScratch) (order, runOf []int32) {
 	n := len(events)
-	order := slices.Grow(s.order[:0], n)[:n]
+	order = slices.Grow(s.order[:0], n)[:n]
 	s.order = order
+	runOf = slices.Grow(s.runOf[:0], n)[:n]
+	s.runOf = runOf
 	if n == 0 {
-		return order
+		return order, runOf
 	}
-	const size = 32 // the ring's size: a power of two
-	var ring [size]int32
-	heads := slices.Grow(s.heads[:0], len(runs))[:len(runs)] // a run's next key
-	s.heads = heads
-	pos := slices.Grow(s.pos[:0], len(runs))[:len(runs)] // a run's next position
-	s.pos = pos
-	// a before b: the earlier start, on a tie the earlier run
-	before := func(a, b int32) bool { return heads[a] < heads[b] || heads[a] == heads[b] && a < b }
-	// insert puts run r into the ring of cnt runs from first, in order
-	first, cnt := 0, 0
-	insert := func(r int32) {
-		j := first + cnt
-		for ; j > first && before(r, ring[(j-1)&(size-1)]); j-- {
-			ring[j&(size-1)] = ring[(j-1)&(size-1)]
-		}
-		ring[j&(size-1)] = r
-		cnt++
-	}
-	merge := len(runs) <= size+1
+	var ring runRing
+	merge := len(runs) <= len(ring.heads)+1
 	for r := 0; merge && r+1 < len(runs); r++ {
 		if runs[r] < runs[r+1] {
-			pos[r], heads[r] = runs[r], events[runs[r]].Start.UnixNano()
-			insert(int32(r))
+			ring.insert(runHead{events[runs[r]].Start.UnixNano(), int32(r), runs[r]})
 		}
 	}
 	for o := 0; merge && o < n; o++ {
-		w := ring[first&(size-1)]
-		first, cnt = first+1, cnt-1
-		p := pos[w]
-		order[o] = p
-		if p++; p < runs[w+1] {
-			k := events[p].Start.UnixNano()
-			if k < heads[w] {
-				merge = false // a run out of order
-			}
-			pos[w], heads[w] = p, k
-			insert(w)
+		h := ring.heads[ring.first&ringMask]
+		ring.first, ring.n = ring.first+1, ring.n-1
+		order[o], runOf[o] = h.pos, h.run
+		if h.pos++; h.pos < runs[h.run+1] {
+			k := events[h.pos].Start.UnixNano()
+			merge = k >= h.key // else a run out of order
+			h.key = k
+			ring.insert(h)
 		}
 	}
 	if merge {
-		return order
+		return order, runOf
 	}
 	keys := slices.Grow(s.keys[:0], n)[:n]
 	s.keys = keys
 	for i := range events {
 		keys[i] = events[i].Start.UnixNano()
 	}
-	return stableOrder(keys, s)
+	order = stableOrder(keys, s)
+	// the run of each position, looked up through the position's run
+	// (keys are done with: they hold it)
+	for r := 0; r+1 < len(runs); r++ {
+		for i := runs[r]; i < runs[r+1]; i++ {
+			keys[i] = int64(r)
+		}
+	}
+	for o, i := range order {
+		runOf[o] = int32(keys[i])
+	}
+	return order, runOf
+}
+
+// runHead is a run's next event in orderRuns: its key, its run, its
+// position.
+type runHead struct {
+	key      int64
+	run, pos int32
+}
+
+// runRing holds the runs' next events in order of key (on a tie, of run),
+// in heads[first&ringMask:] and on from the start, n of them.
+type runRing struct {
+	heads    [32]runHead
+	first, n int
+}
+
+const ringMask = len(runRing{}.heads) - 1 // the ring's size is a power of two
+
+// insert puts h into the ring in its place, looked for from the back.
+func (g *runRing) insert(h runHead) {
+	j := g.first + g.n
+	for ; j > g.first; j-- {
+		q := g.heads[(j-1)&ringMask]
+		if h.key > q.key || h.key == q.key && h.run > q.run {
+			break
+		}
+		g.heads[j&ringMask] = q
+	}
+	g.heads[j&ringMask] = h
+	g.n++
 }
 
 // stableOrder returns the positions of keys (at least one) in the order of
@@ -512,7 +534,7 @@ func dateRange(first, last time.Time) (time.Time, time.Time, error) {
 }
 
 func (s *Sky) eventsFor(ctx context.Context, p Place, specs []config.KindSpec, first, last time.Time, buf *buffers) ([]Event, []Note, error) {
-	events, order, notes, err := s.computeEvents(ctx, p, specs, first, last, buf)
+	events, order, _, notes, err := s.computeEvents(ctx, p, specs, first, last, buf)
 	if err != nil {
 		return nil, nil, err
 	}
@@ -523,12 +545,13 @@ func (s *Sky) eventsFor(ctx context.Context, p Place, specs []config.KindSpec, f
 // computeEvents is eventsFor without putting the events in order: they
 // come as computed, kind after kind, and order lists their positions in
 // the order of Start (equal starts in the order of the kinds), as a
-// stable sort would put them. A writer that reads them through order
-// spares moving each 312-byte event once.
-func (s *Sky) computeEvents(ctx context.Context, p Place, specs []config.KindSpec, first, last time.Time, buf *buffers) ([]Event, []int32, []Note, error) {
-	first, last, err := dateRange(first, last)
+// stable sort would put them; spec[i] is the index in specs of the kind
+// of events[order[i]]. A writer that reads them through order spares
+// moving each 312-byte event once.
+func (s *Sky) computeEvents(ctx context.Context, p Place, specs []config.KindSpec, first, last time.Time, buf *buffers) (events []Event, order, spec []int32, notes []Note, err error) {
+	first, last, err = dateRange(first, last)
 	if err != nil {
-		return nil, nil, nil, err
+		return nil, nil, nil, nil, err
 	}
 	buf.releaseWorking()
 	c := &collector{ctx: ctx, sky: s, p: p, first: first, last: last, events: buf.events[:0], notes: buf.notes[:0], xsBuf: &buf.crossings, scratch: buf}
@@ -537,7 +560,7 @@ func (s *Sky) computeEvents(ctx context.Context, p Place, specs []config.KindSpe
 	days := int(last.Sub(first).Hours()/24) + 1
 	c.events = slices.Grow(c.events, days*eventsPerDate(specs)+16)
 	if err := c.prepare(altitudes(p.Observer, specs)...); err != nil {
-		return nil, nil, nil, fmt.Errorf("feed: %w", err)
+		return nil, nil, nil, nil, fmt.Errorf("feed: %w", err)
 	}
 	// Each kind appends its own run of events (and of notes), in order or
 	// nearly so; the runs are then merged by Start (orderRuns), the notes
@@ -547,15 +570,15 @@ func (s *Sky) computeEvents(ctx context.Context, p Place, specs []config.KindSpe
 		runs = append(runs, int32(len(c.events)))
 		c.maxLit, c.spec = k.MaxIllumination, k
 		if err := c.add(k.Kind); err != nil {
-			return nil, nil, nil, fmt.Errorf("feed: %s: %w", k.Kind, err)
+			return nil, nil, nil, nil, fmt.Errorf("feed: %s: %w", k.Kind, err)
 		}
 	}
 	runs = append(runs, int32(len(c.events)))
 	buf.order.runs = runs
 	buf.events, buf.notes = c.events, c.notes
-	order := orderRuns(c.events, runs, &buf.order)
+	order, spec = orderRuns(c.events, runs, &buf.order)
 	buf.mnotes = sortByKey(c.notes, buf.mnotes[:0], func(n *Note) int64 { return n.Date.Unix() })
-	return c.events, order, buf.mnotes, nil
+	return c.events, order, spec, buf.mnotes, nil
 }
 
 // sortByKey appends to out the items of xs in the order of key, equal keys

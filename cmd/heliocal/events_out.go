@@ -56,9 +56,8 @@ type jsonSink struct {
 	held     []feed.Event // in order of start
 	spare    []feed.Event // the next chunk's held events are gathered here
 	ident    []int32      // the order of a chunk without one
-	kinds    []jsonKind   // the kinds met so far, looked up in order
-	last     int          // index + 1 in kinds of the last event's kind; 0: none yet
-	lastDir  int          // the last event's direction (dirIndex)
+	kinds    []*jsonKind  // the kinds met so far, looked up in order
+	bySpec   []*jsonKind  // the kind last met of each kind spec (Chunk.Spec)
 	days     dayCache
 }
 
@@ -72,11 +71,16 @@ type dayCache struct {
 // appendDay appends the date of the day numbered days from 1970-01-01.
 func (c *dayCache) appendDay(b []byte, days int64) []byte {
 	if c.day != days+1 {
-		y, m, d := civilFromDays(days)
-		appendDate(c.text[:0], y, m, d)
-		c.day = days + 1
+		c.date(days)
 	}
 	return append(b, c.text[:]...)
+}
+
+// date makes the day numbered days from 1970-01-01 the cached one.
+func (c *dayCache) date(days int64) {
+	y, m, d := civilFromDays(days)
+	appendDate(c.text[:0], y, m, d)
+	c.day = days + 1
 }
 
 // jsonKind is what the writer knows of one kind: the start of its object,
@@ -87,10 +91,63 @@ type jsonKind struct {
 	plain bool   // written by event itself (see plainJSONKinds)
 	noon  bool   // altitude_deg
 	rise  bool   // day_length_s and azimuth_deg
-	// next[d] is the index + 1 in kinds of the kind that followed this
-	// one in direction d (none, rising, setting) the last time; 0: none
-	// yet
-	next [3]int
+	// tmpl[d] is the text of an event in direction d without end or
+	// part, made at its first use; nil for a kind that is not plain or
+	// whose name makes the text too long
+	tmpl [3]*jsonTemplate
+}
+
+// jsonTemplate is the text of one kind's event in one direction, without
+// end or part, from the comma before it up to the name of its first
+// number (or to its end, when it has none), with zeros for the digits of
+// its start and date: the event is this text with its digits written over
+// the zeros and its numbers appended. The text is an array, copied whole
+// without a call; the bytes after n are zeros.
+type jsonTemplate struct {
+	text        [jsonTemplateSize]byte
+	n           int // the text's length
+	start, date int // where the start's and the date's digits begin
+}
+
+// jsonTemplateSize bounds a template's text: a kind name of up to 40
+// bytes fits.
+const jsonTemplateSize = 192
+
+// template returns the text of k's events in direction dir (dirIndex)
+// without end or part, making it the first time; nil when it does not
+// fit.
+func (k *jsonKind) template(dir int) *jsonTemplate {
+	if t := k.tmpl[dir]; t != nil || !k.plain {
+		return t
+	}
+	b := append([]byte{','}, k.head...)
+	start := len(b)
+	b = append(b, "0000-00-00T00:00:00.000Z"...)
+	switch dir {
+	case 1:
+		b = append(b, "\",\n      \"direction\": \"rising\",\n      \"date\": \""...)
+	case 2:
+		b = append(b, "\",\n      \"direction\": \"setting\",\n      \"date\": \""...)
+	default:
+		b = append(b, "\",\n      \"date\": \""...)
+	}
+	date := len(b)
+	b = append(b, "0000-00-00\""...)
+	switch {
+	case k.noon:
+		b = append(b, ",\n      \"altitude_deg\": "...)
+	case k.rise:
+		b = append(b, ",\n      \"day_length_s\": "...)
+	default:
+		b = append(b, "\n    }"...)
+	}
+	if len(b) > jsonTemplateSize {
+		return nil
+	}
+	t := &jsonTemplate{n: len(b), start: start, date: date}
+	copy(t.text[:], b)
+	k.tmpl[dir] = t
+	return t
 }
 
 // jsonFlush is the size at which the writer hands its buffer on.
@@ -104,12 +161,15 @@ func (j *jsonSink) chunk(c feed.Chunk) error {
 	}
 	loc := j.site.TimeZone.Location
 	next := astro.DateStart(loc, c.Last.Year(), c.Last.Month(), c.Last.Day()+1)
-	evs, order := c.Events, c.Order
+	evs, order, spec := c.Events, c.Order, c.Spec
 	if order == nil {
 		for len(j.ident) < len(evs) {
 			j.ident = append(j.ident, int32(len(j.ident)))
 		}
 		order = j.ident[:len(evs)]
+	}
+	if len(spec) != len(order) {
+		spec = nil
 	}
 	cut := len(order)
 	for cut > 0 && !evs[order[cut-1]].Start.Before(next) {
@@ -118,22 +178,35 @@ func (j *jsonSink) chunk(c feed.Chunk) error {
 	// the events held back from the chunk before go in among these,
 	// before an event that starts at the same instant
 	held := j.held
-	for _, i := range order[:cut] {
+	for o, i := range order[:cut] {
 		e := &evs[i]
 		for len(held) > 0 && !e.Start.Before(held[0].Start) {
-			if err := j.write(&held[0]); err != nil {
-				return err
-			}
+			j.event(&held[0], j.kind(&held[0].Kind))
 			held = held[1:]
 		}
-		if err := j.write(e); err != nil {
-			return err
+		// the kind last met of the event's kind spec, nearly always
+		var k *jsonKind
+		if spec != nil && int(spec[o]) < len(j.bySpec) {
+			k = j.bySpec[spec[o]]
+		}
+		if k == nil || !sameKind(&k.kind, &e.Kind) {
+			k = j.kindOf(e, spec, o)
+		}
+		if t := k.tmpl[dirIndex(e.Direction)]; t != nil && e.End.IsZero() && e.Part == "" && !e.DirectSun &&
+			j.events > 0 && cap(j.buf)-len(j.buf) >= jsonTemplateSize {
+			j.buf = j.plainEvent(j.buf, k, t, e)
+			j.events++
+		} else {
+			j.event(e, k)
+		}
+		if len(j.buf) >= jsonFlush {
+			if err := j.flush(); err != nil {
+				return err
+			}
 		}
 	}
 	for len(held) > 0 && held[0].Start.Before(next) {
-		if err := j.write(&held[0]); err != nil {
-			return err
-		}
+		j.event(&held[0], j.kind(&held[0].Kind))
 		held = held[1:]
 	}
 	// held back now: the rest of those and the events that start after
@@ -161,15 +234,6 @@ func (j *jsonSink) chunk(c feed.Chunk) error {
 	return j.flush()
 }
 
-// write appends one event object, and hands the buffer on once it is full.
-func (j *jsonSink) write(e *feed.Event) error {
-	j.event(e)
-	if len(j.buf) >= jsonFlush {
-		return j.flush()
-	}
-	return nil
-}
-
 func (j *jsonSink) flush() error {
 	_, err := j.w.Write(j.buf)
 	j.buf = j.buf[:0]
@@ -180,13 +244,21 @@ func (j *jsonSink) flush() error {
 // long listing) written directly, any other kind (and a sunrise or sunset
 // over a skyline, with its direct_sun_s) through toJSONEvent and
 // encoding/json.
-func (j *jsonSink) event(e *feed.Event) {
+func (j *jsonSink) event(e *feed.Event, k *jsonKind) {
+	if j.events > 0 && e.End.IsZero() && e.Part == "" && !e.DirectSun {
+		// nearly every event of a long listing: its kind's text with the
+		// digits written in (the chunk's loop finds the text made)
+		if t := k.template(dirIndex(e.Direction)); t != nil && cap(j.buf)-len(j.buf) >= jsonTemplateSize {
+			j.events++
+			j.buf = j.plainEvent(j.buf, k, t, e)
+			return
+		}
+	}
 	b := j.buf
 	if j.events > 0 {
 		b = append(b, ',')
 	}
 	j.events++
-	k := j.kind(&e.Kind, e.Direction)
 	if !k.plain || e.DirectSun || e.Open {
 		obj, err := json.MarshalIndent(toJSONEvent(*e), "    ", "  ")
 		if err != nil { // plain strings and finite numbers: cannot fail
@@ -232,36 +304,63 @@ func (j *jsonSink) event(e *feed.Event) {
 	j.buf = append(b, "\n    }"...)
 }
 
-// kind returns what the writer knows of k, the kind of an event crossing
-// in direction dir, working it out the first time.
-//
-// The kinds of a listing follow one another in much the same order every
-// day, so the kind that followed the last one (in the last one's
-// direction: a threshold crossed rising is followed by another kind than
-// when crossed setting) the time before is tried first.
-func (j *jsonSink) kind(k *config.Kind, d astro.Direction) *jsonKind {
-	dir := dirIndex(d)
-	if j.last > 0 {
-		if n := j.kinds[j.last-1].next[j.lastDir]; n > 0 && sameKind(&j.kinds[n-1].kind, k) {
-			j.last, j.lastDir = n, dir
-			return &j.kinds[n-1]
+// plainEvent appends the event e of the plain kind k, after another
+// event, without end or part, through k's text t for e's direction: the
+// text is copied whole, e's start and date are written over its zeros,
+// and its numbers follow. b has room for the whole text array. The start
+// is cut from Unix nanoseconds (every instant astro serves, 1800–2200).
+func (j *jsonSink) plainEvent(b []byte, k *jsonKind, t *jsonTemplate, e *feed.Event) []byte {
+	n := len(b)
+	w := (*[jsonTemplateSize]byte)(b[n : n+jsonTemplateSize])
+	*w = t.text
+	b = b[:n+t.n]
+	j.days.putStamp((*[24]byte)(w[t.start:t.start+24]), e.Start.UnixNano())
+	if d, _ := floorDiv(e.Date.Unix(), 86400); j.days.day != d+1 {
+		j.days.date(d)
+	}
+	*(*[10]byte)(w[t.date : t.date+10]) = j.days.text
+	switch {
+	case k.noon:
+		b = appendRounded(b, e.Altitude, 4)
+		b = append(b, "\n    }"...)
+	case k.rise:
+		b = appendRounded(b, e.DayLength.Seconds(), 3)
+		b = append(b, ",\n      \"azimuth_deg\": "...)
+		b = appendRounded(b, e.Azimuth, 2)
+		b = append(b, "\n    }"...)
+	}
+	return b
+}
+
+// kindOf returns what the writer knows of the kind of e, the event at
+// o in the order of a chunk whose kind specs are spec (nil: none known),
+// and remembers it as the kind last met of e's kind spec.
+func (j *jsonSink) kindOf(e *feed.Event, spec []int32, o int) *jsonKind {
+	k := j.kind(&e.Kind)
+	if spec != nil {
+		for int(spec[o]) >= len(j.bySpec) {
+			j.bySpec = append(j.bySpec, nil)
+		}
+		j.bySpec[spec[o]] = k
+	}
+	return k
+}
+
+// kind returns what the writer knows of k, working it out the first time.
+func (j *jsonSink) kind(k *config.Kind) *jsonKind {
+	for _, jk := range j.kinds {
+		if sameKind(&jk.kind, k) {
+			return jk
 		}
 	}
-	for i := range j.kinds {
-		if sameKind(&j.kinds[i].kind, k) {
-			j.follow(i, dir)
-			return &j.kinds[i]
-		}
-	}
-	jk := jsonKind{kind: *k, plain: plainJSONKinds[k.Name], noon: k.Name == "solar-noon",
+	jk := &jsonKind{kind: *k, plain: plainJSONKinds[k.Name], noon: k.Name == "solar-noon",
 		rise: k.Name == "sunrise" || k.Name == "sunset"}
 	jk.head = string(append(appendJSONString([]byte("\n    {\n      \"kind\": "), k.String()), ",\n      \"start\": \""...))
 	j.kinds = append(j.kinds, jk)
-	j.follow(len(j.kinds)-1, dir)
-	return &j.kinds[len(j.kinds)-1]
+	return jk
 }
 
-// dirIndex numbers a direction for jsonKind.next: 0 none, 1 rising, 2
+// dirIndex numbers a direction for jsonKind.tmpl: 0 none, 1 rising, 2
 // setting.
 func dirIndex(d astro.Direction) int {
 	switch d {
@@ -280,15 +379,6 @@ func sameKind(a, b *config.Kind) bool {
 		a.DayLength == b.DayLength && a.Name == b.Name
 }
 
-// follow records that the kind at index i, crossing in direction dir
-// (dirIndex), follows the last event's kind.
-func (j *jsonSink) follow(i, dir int) {
-	if j.last > 0 {
-		j.kinds[j.last-1].next[j.lastDir] = i + 1
-	}
-	j.last, j.lastDir = i+1, dir
-}
-
 // plainJSONKinds are the kinds whose JSON event.event writes itself, with
 // the fields toJSONEvent gives them: kind, start, end, direction, date,
 // part, and altitude_deg (solar noon; the Sun's highest or lowest in a
@@ -305,7 +395,7 @@ func (j *jsonSink) close() error {
 		j.buf = append(j.buf, "{\n  \"events\": ["...)
 	}
 	for i := range j.held {
-		j.event(&j.held[i])
+		j.event(&j.held[i], j.kind(&j.held[i].Kind))
 	}
 	if j.events > 0 {
 		j.buf = append(j.buf, "\n  "...)
@@ -345,6 +435,23 @@ func (c *dayCache) appendUTCMillis(b []byte, t time.Time) []byte {
 	f := ms % 100 * 2
 	return append(b, 'T', twoDigits[h], twoDigits[h+1], ':', twoDigits[m], twoDigits[m+1], ':',
 		twoDigits[s], twoDigits[s+1], '.', byte('0'+ms/100), twoDigits[f], twoDigits[f+1], 'Z')
+}
+
+// putStamp writes the instant ns (Unix nanoseconds) rounded to the
+// millisecond (feed.ToMillisecond) in UTC into st as jsonTime writes it,
+// YYYY-MM-DDThh:mm:ss.mmmZ: its digits, over a text that has the rest.
+func (c *dayCache) putStamp(st *[24]byte, ns int64) {
+	ms, _ := floorDiv(ns+500_000, 1_000_000) // half a millisecond rounds up, as time.Round
+	days, r := floorDiv(ms, 86_400_000)
+	if c.day != days+1 {
+		c.date(days)
+	}
+	*(*[10]byte)(st[:10]) = c.text
+	u := uint32(r)
+	h, m, s, f := u/3_600_000*2, u/60_000%60*2, u/1000%60*2, u%1000 // offsets in twoDigits, and the milliseconds
+	f2 := f % 100 * 2
+	st[11], st[12], st[14], st[15], st[17], st[18] = twoDigits[h], twoDigits[h+1], twoDigits[m], twoDigits[m+1], twoDigits[s], twoDigits[s+1]
+	st[20], st[21], st[22] = byte('0'+f/100), twoDigits[f2], twoDigits[f2+1]
 }
 
 // twoDigits holds 00 to 99: the digits of n are twoDigits[2n:2n+2].
@@ -408,40 +515,53 @@ func appendRounded(b []byte, x float64, digits int) []byte {
 	if n == 0 || !(math.Abs(n) < 1e15) {
 		return appendJSONFloat(b, n/scale)
 	}
-	i := int64(n)
-	if i < 0 {
-		b, i = append(b, '-'), -i
+	if n < 0 {
+		b, n = append(b, '-'), -n
 	}
-	// the digits of i from the right, into d[p:end]: the fraction's
-	// digits-many (its zeros on the right dropped, and the point with them
+	// the digits from the right, two at a time, into d[p:]: the
+	// fraction's (its zeros on the right dropped, and the point with them
 	// when all are), then the whole part's
-	u := uint64(i)
+	u := uint64(n)
+	whole, frac := u/pow10i[digits], u%pow10i[digits]
 	var d [24]byte
-	p, end := len(d), len(d)
-	for range digits {
-		p--
-		d[p] = byte('0' + u%10)
-		u /= 10
-		if end == p+1 && d[p] == '0' {
-			end = p
+	p := len(d)
+	if frac != 0 {
+		for frac%10 == 0 {
+			frac, digits = frac/10, digits-1
 		}
-	}
-	if end > p {
+		for ; digits >= 2; digits -= 2 {
+			p -= 2
+			q := frac % 100 * 2
+			d[p], d[p+1] = twoDigits[q], twoDigits[q+1]
+			frac /= 100
+		}
+		if digits == 1 {
+			p--
+			d[p] = byte('0' + frac)
+		}
 		p--
 		d[p] = '.'
 	}
-	for {
-		p--
-		d[p] = byte('0' + u%10)
-		u /= 10
-		if u == 0 {
-			break
-		}
+	for whole >= 100 {
+		p -= 2
+		q := whole % 100 * 2
+		d[p], d[p+1] = twoDigits[q], twoDigits[q+1]
+		whole /= 100
 	}
-	return append(b, d[p:end]...)
+	if whole >= 10 {
+		p -= 2
+		d[p], d[p+1] = twoDigits[2*whole], twoDigits[2*whole+1]
+	} else {
+		p--
+		d[p] = byte('0' + whole)
+	}
+	return append(b, d[p:]...)
 }
 
-var pow10 = [...]float64{1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6}
+var (
+	pow10  = [...]float64{1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6}
+	pow10i = [...]uint64{1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6}
+)
 
 // appendJSONString appends s quoted as encoding/json writes it: plain
 // printable ASCII directly, anything else through the encoder.

@@ -179,7 +179,8 @@ func TestEventsCSVColumnsOnce(t *testing.T) {
 
 // The JSON writer's own number and time formatting writes what
 // encoding/json and jsonTime write: rounded values of every size and sign,
-// and instants across centuries, leap days and half milliseconds.
+// and instants across centuries (before 1970 too), leap days and half
+// milliseconds, from time.Time and from Unix nanoseconds.
 func TestEventsJSONFormatting(t *testing.T) {
 	r := rand.New(rand.NewPCG(12, 34))
 	for i := range 200_000 {
@@ -211,6 +212,10 @@ func TestEventsJSONFormatting(t *testing.T) {
 		}
 		if got, want := string(c.appendUTCMillis(nil, tm)), utcStamp(tm); got != want {
 			t.Fatalf("%v: %s, want %s", tm, got, want)
+		}
+		st := [24]byte([]byte("0000-00-00T00:00:00.000Z"))
+		if c.putStamp(&st, tm.UnixNano()); string(st[:]) != utcStamp(tm) {
+			t.Fatalf("%v: written over the zeros %s, want %s", tm, st, utcStamp(tm))
 		}
 		if got, want := string(c.appendCivilDate(nil, tm)), tm.UTC().Format(time.DateOnly); got != want {
 			t.Fatalf("%v: date %s, want %s", tm, got, want)

@@ -113,24 +113,17 @@ type jsonTemplate struct {
 // bytes fits.
 const jsonTemplateSize = 192
 
-// template returns the text of k's events in direction dir (dirIndex)
-// without end or part, making it the first time; nil when it does not
-// fit.
-func (k *jsonKind) template(dir int) *jsonTemplate {
+// template returns the text of k's events in direction d without end or
+// part, making it the first time; nil when it does not fit.
+func (k *jsonKind) template(d astro.Direction) *jsonTemplate {
+	dir := dirIndex(d)
 	if t := k.tmpl[dir]; t != nil || !k.plain {
 		return t
 	}
 	b := append([]byte{','}, k.head...)
 	start := len(b)
 	b = append(b, "0000-00-00T00:00:00.000Z"...)
-	switch dir {
-	case 1:
-		b = append(b, "\",\n      \"direction\": \"rising\",\n      \"date\": \""...)
-	case 2:
-		b = append(b, "\",\n      \"direction\": \"setting\",\n      \"date\": \""...)
-	default:
-		b = append(b, "\",\n      \"date\": \""...)
-	}
+	b = appendToDate(b, d)
 	date := len(b)
 	b = append(b, "0000-00-00\""...)
 	switch {
@@ -248,7 +241,7 @@ func (j *jsonSink) event(e *feed.Event, k *jsonKind) {
 	if j.events > 0 && e.End.IsZero() && e.Part == "" && !e.DirectSun {
 		// nearly every event of a long listing: its kind's text with the
 		// digits written in (the chunk's loop finds the text made)
-		if t := k.template(dirIndex(e.Direction)); t != nil && cap(j.buf)-len(j.buf) >= jsonTemplateSize {
+		if t := k.template(e.Direction); t != nil && cap(j.buf)-len(j.buf) >= jsonTemplateSize {
 			j.events++
 			j.buf = j.plainEvent(j.buf, k, t, e)
 			return
@@ -274,17 +267,7 @@ func (j *jsonSink) event(e *feed.Event, k *jsonKind) {
 		b = append(b, "\",\n      \"end\": \""...)
 		b = j.days.appendUTCMillis(b, e.End)
 	}
-	// the start's (or end's) closing quote up to the date's opening one,
-	// in one piece; the plain kinds cross altitudes: rising or setting
-	// (feed.DirectionWord)
-	switch e.Direction {
-	case astro.Rising:
-		b = append(b, "\",\n      \"direction\": \"rising\",\n      \"date\": \""...)
-	case astro.Setting:
-		b = append(b, "\",\n      \"direction\": \"setting\",\n      \"date\": \""...)
-	default:
-		b = append(b, "\",\n      \"date\": \""...)
-	}
+	b = appendToDate(b, e.Direction)
 	b = j.days.appendCivilDate(b, e.Date)
 	b = append(b, '"')
 	if e.Part != "" {
@@ -358,6 +341,20 @@ func (j *jsonSink) kind(k *config.Kind) *jsonKind {
 	jk.head = string(append(appendJSONString([]byte("\n    {\n      \"kind\": "), k.String()), ",\n      \"start\": \""...))
 	j.kinds = append(j.kinds, jk)
 	return jk
+}
+
+// appendToDate appends what follows the digits of a start (or an end) up
+// to the date's, in one piece: the closing quote, the direction (the
+// plain kinds cross altitudes: rising or setting, feed.DirectionWord) and
+// the date's name.
+func appendToDate(b []byte, d astro.Direction) []byte {
+	switch d {
+	case astro.Rising:
+		return append(b, "\",\n      \"direction\": \"rising\",\n      \"date\": \""...)
+	case astro.Setting:
+		return append(b, "\",\n      \"direction\": \"setting\",\n      \"date\": \""...)
+	}
+	return append(b, "\",\n      \"date\": \""...)
 }
 
 // dirIndex numbers a direction for jsonKind.tmpl: 0 none, 1 rising, 2

@@ -234,10 +234,18 @@ const ephemerisMargin = 2 * 24 * time.Hour
 
 // NewEphemeris builds the Sun's track for queries within [from − 2 days,
 // to + 2 days]. from and to must lie within MinTime..MaxTime (else a
-// *RangeError) and from must not be after to. Cost per day of span: the
-// nutation and 148 of VSOP87D's terms, plus 20 evaluations of the rest per
-// 256 days (see chebyshev.go).
+// *RangeError) and from must not be after to. The days within the shipped
+// table (1989-12-28..2101-01-05: any span within 1990..2100, see
+// suntable.go) are read from it; the others are computed, at a cost per day
+// of the nutation and 148 of VSOP87D's terms, plus 20 evaluations of the
+// rest per 256 days (see chebyshev.go).
 func NewEphemeris(from, to time.Time) (*Ephemeris, error) {
+	return newEphemeris(from, to, true)
+}
+
+// newEphemeris is NewEphemeris, with the table's days read from it when
+// useTable is set and computed otherwise.
+func newEphemeris(from, to time.Time, useTable bool) (*Ephemeris, error) {
 	if err := checkTime("ephemeris start", from); err != nil {
 		return nil, err
 	}
@@ -251,30 +259,65 @@ func NewEphemeris(from, to time.Time) (*Ephemeris, error) {
 	// samples at 0h UTC, from 4 days before the start to 4 days after the end
 	start := math.Floor(unixSeconds(from)/secondsPerDay)*secondsPerDay - 4*secondsPerDay
 	n := int(math.Ceil((unixSeconds(to)-start)/secondsPerDay)) + 5
-	const earthRadiiPerAU = auKm / earthRadiusKm
-	end := start + float64(n-1)*secondsPerDay
-	series := newEarthSeries(epochOf(start).JDE-0.5, epochOf(end).JDE+0.5)
 	tr := allocTrack(start, secondsPerDay, n)
 	tr.sd, tr.cd = make([]float64, n), make([]float64, n) // filled block by block (trigRange)
-	// The samples are taken block by block (daily starts its rotations
-	// afresh at each block, whichever goroutine takes it), each core taking
-	// the next block not yet taken until none is left, so that the cores
-	// finish within a block of each other; the calling goroutine is one of
-	// them. A goroutine's working memory serves each of its blocks: the
-	// same numbers as in one run.
+	// samples k0..k1−1 from the table, the others computed (a run before
+	// it, a run after it)
+	k0, k1 := n, n
+	if useTable {
+		k0, k1 = readSunTable(tr)
+	}
+	put := func(b0 int, gha, dec, dist []float64) {
+		for i := range gha {
+			tr.set(b0+i, gha[i], dec[i], dist[i])
+		}
+		tr.trigRange(b0, b0+len(gha))
+	}
+	sunSamples(start, 0, k0, put)
+	sunSamples(start, k1, n, put)
+	tr.finish()
+	tr.carry = true
+	return &Ephemeris{coverage: coverage{qa, qb}, sun: tr}, nil
+}
+
+// sunSamples computes the Sun's samples k0..k1−1 at 0h UTC of the days
+// start + k·(1 day) (start in Unix s): the Greenwich hour angle (rad, not
+// reduced, greenwichHourAngle), the declination (rad) and the distance
+// (Earth radii), handed to put a block at a time (put(b0, …): samples b0,
+// b0+1, …), possibly from several goroutines at once for different blocks.
+// The slices are the goroutine's working memory, overwritten after put
+// returns.
+//
+// The run's Earth series (chebyshev.go) is fitted from its first sample,
+// and the samples are taken block by block from k0 (daily starts its
+// rotations afresh at each block, whichever goroutine takes it), each core
+// taking the next block not yet taken until none is left, so that the
+// cores finish within a block of each other; the calling goroutine is one
+// of them. A goroutine's working memory serves each of its blocks: the same
+// numbers as in one run. They depend on k0 in their last bits: a run from
+// another day rotates from other instants.
+func sunSamples(start float64, k0, k1 int, put func(b0 int, gha, dec, dist []float64)) {
+	n := k1 - k0
+	if n <= 0 {
+		return
+	}
+	const earthRadiiPerAU = auKm / earthRadiusKm
+	first, last := start+float64(k0)*secondsPerDay, start+float64(k1-1)*secondsPerDay
+	series := newEarthSeries(epochOf(first).JDE-0.5, epochOf(last).JDE+0.5)
 	blocks := (n + sunChebDays - 1) / sunChebDays
 	var next atomic.Int64
 	take := func() {
 		var buf sampleBuffers
 		es := make([]Epoch, 0, sunChebDays)
 		jdes := make([]float64, 0, sunChebDays)
+		var gha, dec, dist [sunChebDays]float64
 		for {
 			b := int(next.Add(1) - 1)
 			if b >= blocks {
 				return
 			}
-			b0 := b * sunChebDays
-			b1 := min(b0+sunChebDays, n)
+			b0 := k0 + b*sunChebDays
+			b1 := min(b0+sunChebDays, k1)
 			es, jdes = es[:0], jdes[:0]
 			for k := b0; k < b1; k++ {
 				e := epochOf(start + float64(k)*secondsPerDay)
@@ -282,12 +325,13 @@ func NewEphemeris(from, to time.Time) (*Ephemeris, error) {
 			}
 			Ls, Bs, Rs := series.daily(jdes, &buf)
 			dpsi, deps := nutationDaily(jdes, &buf)
-			tr.fill(b0, es, func(k int, e Epoch) (ra, dec, dist, eqEq float64) {
-				i := k - b0
+			for i, e := range es {
 				s := apparentSunNut(e.JDE, Ls[i], Bs[i], Rs[i], dpsi[i], deps[i])
-				return s.ra, s.dec, s.r * earthRadiiPerAU, s.dpsi * math.Cos(s.eps)
-			})
-			tr.trigRange(b0, b1)
+				gha[i] = greenwichHourAngle(e, s.ra, s.dpsi*math.Cos(s.eps))
+				dec[i], dist[i] = s.dec, s.r*earthRadiiPerAU
+			}
+			m := len(es)
+			put(b0, gha[:m], dec[:m], dist[:m])
 		}
 	}
 	var wg sync.WaitGroup
@@ -296,9 +340,6 @@ func NewEphemeris(from, to time.Time) (*Ephemeris, error) {
 	}
 	take()
 	wg.Wait()
-	tr.finish()
-	tr.carry = true
-	return &Ephemeris{coverage: coverage{qa, qb}, sun: tr}, nil
 }
 
 // Direction tells whether the Sun crosses a threshold going up or down.

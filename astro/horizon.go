@@ -119,13 +119,24 @@ func allocTrack(start, step float64, n int) *track {
 // start + k·step): sample(k, es[k−k0]).
 func (tr *track) fill(k0 int, es []Epoch, sample func(k int, e Epoch) (ra, dec, dist, eqEq float64)) {
 	for i, e := range es {
-		k := k0 + i
-		sec := tr.start + float64(k)*tr.step
-		ra, dec, dist, eqEq := sample(k, e)
-		gast := meanSiderealRaw(e.JDUT1)*deg2rad + eqEq
-		tr.g[k] = gast - ra - siderealRate*(sec-tr.start) - siderealRate*leapCount(sec)
-		tr.dec[k], tr.dist[k] = dec, dist
+		ra, dec, dist, eqEq := sample(k0+i, e)
+		tr.set(k0+i, greenwichHourAngle(e, ra, eqEq), dec, dist)
 	}
+}
+
+// greenwichHourAngle returns the Greenwich hour angle (rad, not reduced) of
+// right ascension ra at epoch e: the apparent sidereal time (the mean one
+// plus the equation of the equinoxes eqEq) minus ra.
+func greenwichHourAngle(e Epoch, ra, eqEq float64) float64 {
+	return meanSiderealRaw(e.JDUT1)*deg2rad + eqEq - ra
+}
+
+// set stores sample k from its Greenwich hour angle gha (rad, not reduced,
+// greenwichHourAngle), declination and distance.
+func (tr *track) set(k int, gha, dec, dist float64) {
+	sec := tr.start + float64(k)*tr.step
+	tr.g[k] = gha - siderealRate*(sec-tr.start) - siderealRate*leapCount(sec)
+	tr.dec[k], tr.dist[k] = dec, dist
 }
 
 // finish unwraps the hour angle's smooth part once every sample is in and

@@ -2,6 +2,7 @@ package feed
 
 import (
 	"fmt"
+	"math"
 	"strings"
 	"time"
 
@@ -96,9 +97,10 @@ func appendLimitGaps(out []LampLimitGap, k config.KindSpec, es []Entry, z *zoneC
 			continue
 		}
 		g := LampLimitGap{Kind: k.Kind, Option: lim.key, Value: lim.value}
+		lastDay := int64(math.MinInt64) // the last date of the last stretch, days since 1970-01-01
 		for i := range es {
 			e := &es[i]
-			if e.Kind != name || e.AllDay || e.Facts.Note || e.Facts.Part != lim.part {
+			if e.AllDay || e.Facts.Note || e.Facts.Part != lim.part || e.Kind != name {
 				continue
 			}
 			// the clock time, on the entry's date, of the end the limit
@@ -107,20 +109,23 @@ func appendLimitGaps(out []LampLimitGap, k config.KindSpec, es []Entry, z *zoneC
 			if !evening {
 				at = e.End
 			}
-			if z.date(at) != e.Date {
-				continue
-			}
+			// the local date of at is the entry's (a date is 00:00 UTC)
 			u := at.Unix()
 			_, off := z.at(u)
+			day := floorDiv(u+off, secondsPerDay)
+			if d := e.Date.Unix(); d != day*secondsPerDay || e.Date.Nanosecond() != 0 {
+				continue
+			}
 			of := time.Duration(daySeconds(u+off)) * time.Second
 			if evening && of <= clock || !evening && of >= clock {
 				continue
 			}
-			if k := len(g.Stretches) - 1; k >= 0 && e.Date.Sub(g.Stretches[k][1]) <= 24*time.Hour {
+			if k := len(g.Stretches) - 1; k >= 0 && day-lastDay <= 1 {
 				g.Stretches[k][1] = e.Date
 			} else {
 				g.Stretches = append(g.Stretches, [2]time.Time{e.Date, e.Date})
 			}
+			lastDay = day
 		}
 		if len(g.Stretches) > 0 {
 			out = append(out, g)

@@ -220,9 +220,10 @@ func (c *collector) lighting(k config.Kind) error {
 	}
 	defer daylightBuffers.put(days)
 	needs := c.flags(len(days))
-	for i, dl := range days {
+	for i := range days {
 		// a date whose only light is the date before's day, past midnight,
 		// has no day of its own and no polar night either: no lamps
+		dl := &days[i]
 		needs[i] = dl.length < k.DayLength && !(dl.length == 0 && dl.touched)
 	}
 	lim := limitsOf(spec)

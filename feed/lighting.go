@@ -573,14 +573,26 @@ func shownAt(t time.Time, z *zoneCache) shownClock {
 	}
 	// ToMinute: to the millisecond, then to the minute, each half up; the
 	// zero time is a whole number of minutes before 1970
-	um := floorDiv(sec*1000+(ns+500_000)/1_000_000+30_000, 60_000) * 60
+	var um int64
+	if x := sec*1000 + (ns+500_000)/1_000_000 + 30_000; x >= 0 {
+		um = x / 60_000 * 60
+	} else {
+		um = floorDiv(x, 60_000) * 60
+	}
 	zone, off := z.at(us)
 	s := daySeconds(us + off)
-	offM := off
-	if um != us {
-		_, offM = z.at(um) // a clock change may lie between the two
+	// the minute's clock: us's moved by the whole minutes' rounding (at
+	// most 31 s either way), or looked up when a clock change may lie
+	// between the two
+	sm := s + int(um-us)
+	if _, offM := z.at(um); offM != off {
+		sm = daySeconds(um + offM)
+	} else if sm < 0 {
+		sm += secondsPerDay
+	} else if sm >= secondsPerDay {
+		sm -= secondsPerDay
 	}
-	mins := daySeconds(um+offM) / 60
+	mins := sm / 60
 	return shownClock{h: s / 3600, m: s / 60 % 60, s: s % 60, hm: mins / 60, mm: mins % 60, zone: zone}
 }
 

@@ -276,6 +276,7 @@ type kindTimes struct {
 	notes  map[time.Time]Note
 
 	sun    *threshold
+	next   int // sun: the first crossing at or after the start of the date last looked up
 	byDate map[time.Time]dayCrossings
 	c      *collector // the place, the ephemeris and the dates' midnights
 	alt    float64    // byDate: the altitude
@@ -363,12 +364,23 @@ func (kt *kindTimes) day(d time.Time) (dayCrossings, error) {
 		kt.byDate[d] = dc
 		return dc, nil
 	}
+	// the crossings from start to end: a plan's dates come in order, so
+	// the search goes on from the last date's (next) when it lies before
+	// start, and compares the instants as Unix nanoseconds
 	xs := kt.sun.xs
-	i := sort.Search(len(xs), func(i int) bool { return !xs[i].Time.Before(start) })
+	startN, endN := start.UnixNano(), end.UnixNano()
+	i := kt.next
+	if i > len(xs) || i > 0 && xs[i-1].Time.UnixNano() >= startN {
+		i = sort.Search(len(xs), func(i int) bool { return xs[i].Time.UnixNano() >= startN })
+	}
+	for i < len(xs) && xs[i].Time.UnixNano() < startN {
+		i++
+	}
 	j := i
-	for j < len(xs) && xs[j].Time.Before(end) {
+	for j < len(xs) && xs[j].Time.UnixNano() < endN {
 		j++
 	}
+	kt.next = i
 	up := kt.sun.upFirst
 	if i > 0 {
 		up = xs[i-1].Direction == astro.Rising

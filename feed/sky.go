@@ -287,6 +287,7 @@ type buffers struct {
 	times     reuse[time.Time]
 	durations reuse[time.Duration]
 	flags     reuse[bool]
+	indices   reuse[int32]
 	marks     reuse[bandMark] // the crossings of a band's bounds (collector.band)
 	transits  []astro.Transit
 }
@@ -328,6 +329,7 @@ func (b *buffers) releaseWorking() {
 	b.times.release()
 	b.durations.release()
 	b.flags.release()
+	b.indices.release()
 	b.marks.release()
 }
 
@@ -640,7 +642,7 @@ func (c *collector) siteInfo(s *config.Site) *siteInfo {
 	return c.si
 }
 
-// times, durations and flags return n zero values, from the chunk's
+// times, durations, flags and indices return n zero values, from the chunk's
 // buffers when the collector has them.
 func (c *collector) times(n int) []time.Time {
 	if c.scratch == nil {
@@ -661,6 +663,13 @@ func (c *collector) flags(n int) []bool {
 		return make([]bool, n)
 	}
 	return c.scratch.flags.take(n)
+}
+
+func (c *collector) indices(n int) []int32 {
+	if c.scratch == nil {
+		return make([]int32, n)
+	}
+	return c.scratch.indices.take(n)
 }
 
 // bandMarks returns n zero crossings for collector.band, as times does.
@@ -800,6 +809,10 @@ type threshold struct {
 	// lateEnds is the record of days that end after midnight (see
 	// dayEnds), made once.
 	lateEnds []time.Time
+	// byDate[i] is where the crossings of the date first+i begin in xs,
+	// and byDate[i+1] where they end (dateCrossings), found once for the
+	// kinds of the threshold (a dawn and a dusk)
+	byDate []int32
 }
 
 // thresholdSpan is the UTC span over which crossings are computed: the
@@ -942,30 +955,27 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 			}
 		}
 	}
-	xs, up := th.xs, th.upFirst
-	c.events = slices.Grow(c.events, len(xs))
+	c.events = slices.Grow(c.events, len(th.xs))
 	starts := c.dayStarts()
+	byDate := c.dateCrossings(th)
 	for i, d := range c.dayDates() {
-		// instants compared as Unix nanoseconds, which hold every instant
-		// astro serves (1800–2200), without time.Time.Before's call
-		start, end := starts[i+1].UnixNano(), starts[i+2].UnixNano()
-		for len(xs) > 0 && xs[0].Time.UnixNano() < start {
-			up = xs[0].Direction == astro.Rising
-			xs = xs[1:]
+		xs := th.xs[byDate[i]:byDate[i+1]] // the date's crossings
+		up := th.upFirst                   // the Sun above alt: as the last crossing left it
+		if byDate[i] > 0 {
+			up = th.xs[byDate[i]-1].Direction == astro.Rising
 		}
-		crossed := false
+		crossed := len(xs) > 0
 		keep := -1 // with a skyline: only the date's first appearance, last disappearance
 		if horizon && alt == skylineKey {
-			for j := 0; j < len(xs) && xs[j].Time.UnixNano() < end; j++ {
+			for j := range xs {
 				if xs[j].Direction == dir && (keep < 0 || dir == astro.Setting) {
 					keep = j
 				}
 			}
 		}
-		for j := 0; len(xs) > 0 && xs[0].Time.UnixNano() < end; j++ {
-			x := xs[0]
-			xs = xs[1:]
-			up, crossed = x.Direction == astro.Rising, true
+		for j := range xs {
+			x := &xs[j]
+			up = x.Direction == astro.Rising
 			if dir != 0 && x.Direction != dir || keep >= 0 && j != keep {
 				continue
 			}
@@ -1012,6 +1022,30 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 		}
 	}
 	return nil
+}
+
+// dateCrossings returns where each date's crossings of th begin in th.xs
+// (see threshold.byDate), found once for all kinds: the crossings from
+// the local midnight that begins the date to the next.
+func (c *collector) dateCrossings(th *threshold) []int32 {
+	if th.byDate != nil {
+		return th.byDate
+	}
+	dates := c.dayDates()
+	at := c.indices(len(dates) + 1)
+	starts := c.dayStarts() // the dates first-1..last+2
+	// instants compared as Unix nanoseconds, which hold every instant
+	// astro serves (1800–2200), without time.Time.Before's call
+	x := 0
+	for i := range at {
+		start := starts[i+1].UnixNano()
+		for x < len(th.xs) && th.xs[x].Time.UnixNano() < start {
+			x++
+		}
+		at[i] = int32(x)
+	}
+	th.byDate = at
+	return at
 }
 
 // twilight reports whether family is a twilight's (civil, nautical,

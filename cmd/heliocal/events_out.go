@@ -10,6 +10,7 @@ import (
 	"strconv"
 	"time"
 	"unicode/utf8"
+	"unsafe"
 
 	"heliocal/astro"
 	"heliocal/config"
@@ -170,37 +171,26 @@ func (j *jsonSink) chunk(c feed.Chunk) error {
 	}
 	// the events held back from the chunk before go in among these,
 	// before an event that starts at the same instant
-	held := j.held
-	for o, i := range order[:cut] {
-		e := &evs[i]
-		for len(held) > 0 && !e.Start.Before(held[0].Start) {
-			j.event(&held[0], j.kind(&held[0].Kind))
-			held = held[1:]
+	held, done := j.held, 0 // order[:done] written
+	for len(held) > 0 {
+		// the chunk's events before the first held back (it goes before
+		// those that start at the same instant), then it
+		p := done
+		for p < cut && evs[order[p]].Start.Before(held[0].Start) {
+			p++
 		}
-		// the kind last met of the event's kind spec, nearly always
-		var k *jsonKind
-		if spec != nil && int(spec[o]) < len(j.bySpec) {
-			k = j.bySpec[spec[o]]
+		if p == cut && !held[0].Start.Before(next) {
+			break
 		}
-		if k == nil || !sameKind(&k.kind, &e.Kind) {
-			k = j.kindOf(e, spec, o)
+		if err := j.ordered(evs, order[done:p], specs(spec, done, p)); err != nil {
+			return err
 		}
-		if t := k.tmpl[dirIndex(e.Direction)]; t != nil && e.End.IsZero() && e.Part == "" && !e.DirectSun &&
-			j.events > 0 && cap(j.buf)-len(j.buf) >= jsonTemplateSize {
-			j.buf = j.plainEvent(j.buf, k, t, e)
-			j.events++
-		} else {
-			j.event(e, k)
-		}
-		if len(j.buf) >= jsonFlush {
-			if err := j.flush(); err != nil {
-				return err
-			}
-		}
-	}
-	for len(held) > 0 && held[0].Start.Before(next) {
+		done = p
 		j.event(&held[0], j.kind(&held[0].Kind))
 		held = held[1:]
+	}
+	if err := j.ordered(evs, order[done:cut], specs(spec, done, cut)); err != nil {
+		return err
 	}
 	// held back now: the rest of those and the events that start after
 	// this chunk's last date, merged by start
@@ -225,6 +215,44 @@ func (j *jsonSink) chunk(c feed.Chunk) error {
 		j.notes = append(j.notes, obj...)
 	}
 	return j.flush()
+}
+
+// specs is spec[from:to], or nil when spec is.
+func specs(spec []int32, from, to int) []int32 {
+	if spec == nil {
+		return nil
+	}
+	return spec[from:to]
+}
+
+// ordered writes evs[order[0]], evs[order[1]] and on, the kind spec of
+// each in spec (nil: not known), and hands the buffer on whenever it is
+// full.
+func (j *jsonSink) ordered(evs []feed.Event, order, spec []int32) error {
+	for o, i := range order {
+		e := &evs[i]
+		// the kind last met of the event's kind spec, nearly always
+		var k *jsonKind
+		if spec != nil && int(spec[o]) < len(j.bySpec) {
+			k = j.bySpec[spec[o]]
+		}
+		if k == nil || !sameKind(&k.kind, &e.Kind) {
+			k = j.kindOf(e, spec, o)
+		}
+		if t := k.tmpl[dirIndex(e.Direction)]; t != nil && e.End.IsZero() && e.Part == "" && !e.DirectSun &&
+			j.events > 0 && cap(j.buf)-len(j.buf) >= jsonTemplateSize {
+			j.buf = j.plainEvent(j.buf, k, t, e)
+			j.events++
+		} else {
+			j.event(e, k)
+		}
+		if len(j.buf) >= jsonFlush {
+			if err := j.flush(); err != nil {
+				return err
+			}
+		}
+	}
+	return nil
 }
 
 func (j *jsonSink) flush() error {
@@ -369,11 +397,13 @@ func dirIndex(d astro.Direction) int {
 	return 0
 }
 
-// sameKind is a == b, written out so that it is inlined and kinds whose
-// names differ in length are told apart at once.
+// sameKind is a == b, written out so that it is inlined, kinds whose
+// names differ in length are told apart at once, and names that are the
+// same string (an event's kind is a copy of its kind spec's) are not
+// compared byte by byte.
 func sameKind(a, b *config.Kind) bool {
 	return len(a.Name) == len(b.Name) && a.Altitude == b.Altitude && a.High == b.High &&
-		a.DayLength == b.DayLength && a.Name == b.Name
+		a.DayLength == b.DayLength && (unsafe.StringData(a.Name) == unsafe.StringData(b.Name) || a.Name == b.Name)
 }
 
 // plainJSONKinds are the kinds whose JSON event.event writes itself, with

@@ -212,7 +212,7 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 	w.dates, w.firstDay = dateTexts.get(days)[:days], col.first.Unix()/secondsPerDay
 	defer func() {
 		if !keepText {
-			textBuffers.put(w.text)
+			textBuffers.reuse(w.text)
 		}
 		textSpans.put(w.spans)
 		dateTexts.put(w.dates)
@@ -279,8 +279,22 @@ func (sp *slicePool[T]) get(n int) []T {
 // put gives s back for get; nothing it held is kept alive. Neither s nor
 // what it holds may be used after the call.
 func (sp *slicePool[T]) put(s []T) {
-	s = s[:cap(s)]
+	sp.putUsed(s[:cap(s)])
+}
+
+// putUsed is put for a slice that was only appended to from empty, as a
+// calendar's text is: what it held past its length was cleared when it
+// was given back before, so its length is all there is to clear (a
+// calendar's text buffer is made for about 40 % more than it takes).
+func (sp *slicePool[T]) putUsed(s []T) {
 	clear(s)
+	sp.reuse(s)
+}
+
+// reuse gives s back for get without clearing it, for a pool of values
+// without pointers that nothing reads before writing them (the entry
+// writers' scratch text, which flushText copies out).
+func (sp *slicePool[T]) reuse(s []T) {
 	s = s[:0]
 	sp.p.Put(&s)
 }
@@ -318,7 +332,7 @@ func (c *Calendar) Release() {
 	releasedEntries.put(c.Entries)
 	c.Entries = nil
 	if c.text != nil {
-		calendarTexts.put(c.text)
+		calendarTexts.putUsed(c.text)
 		c.text = nil
 	}
 }

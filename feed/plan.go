@@ -219,7 +219,7 @@ func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parse
 		w.text, w.keepText, w.flushed = text, true, len(text)
 	} else {
 		w.text = textBuffers.get(pd.total * textPerEntry)
-		defer func() { textBuffers.put(w.text) }()
+		defer func() { textBuffers.reuse(w.text) }()
 	}
 	dates, uses := pd.dates, pd.uses
 	// the times of every kind the plans start or end at; an end may be on

@@ -11,7 +11,7 @@ import (
 )
 
 // A calendar's descriptions, titles and UIDs are substrings of memory that
-// Release hands to the next calendar, cleared (slicePool.put): a string used
+// Release hands to the next calendar, cleared (slicePool.putUsed): a string used
 // after Release reads NUL bytes, here and in every other package's tests,
 // instead of passing by chance while the memory waits unused.
 func TestReleaseOverwritesText(t *testing.T) {

@@ -257,7 +257,7 @@ func (ev *vevent) appendTo(b []byte) []byte {
 		b = w.summaryLine(b, ev.title)
 	}
 	if ev.desc != "" {
-		b = w.cleanTextLine(b, "DESCRIPTION:", ev.desc)
+		b = w.descLine(b, ev.title, ev.desc)
 	}
 	return append(b, w.closing(ev.cats)...)
 }
@@ -309,7 +309,7 @@ func (ev *vevent) appendLines(b []byte) []byte {
 		b = w.summaryLine(b, ev.title)
 	}
 	if ev.desc != "" {
-		b = w.cleanTextLine(b, "DESCRIPTION:", ev.desc)
+		b = w.descLine(b, ev.title, ev.desc)
 	}
 	b = append(b, w.lines.tail...)
 	for i, v := range values {
@@ -370,25 +370,31 @@ func (w *writer) textLine(b []byte, prefix, value string) []byte {
 
 // cleanTextLine is textLine for a value not yet cleaned: it is cleaned
 // (cleanText) as it is escaped, in one pass, and the line is left out, as
-// textLine's caller leaves it out, when nothing is left of the value.
+// textLine's caller leaves it out, when nothing is left of the value. It
+// reports whether the value was clean as given (not normalised, not
+// empty); then, with cuts, it appends to *cuts where the escaped line
+// (left in w.scratch) was folded (see foldCuts).
 //
 // The line is escaped into w.scratch and folded from there into b, so that
 // a long line is copied once, not written to b, copied out and folded back.
-func (w *writer) cleanTextLine(b []byte, prefix, value string) []byte {
+func (w *writer) cleanTextLine(b []byte, prefix, value string, cuts *[]int32) ([]byte, bool) {
 	line, ok := escapeCleanText(append(w.scratch[:0], prefix...), value)
 	if !ok {
 		value = normaliseText(value)
 		if value == "" {
 			w.scratch = line
-			return b
+			return b, false
 		}
 		line = escapeText(line[:len(prefix)], value)
 	}
 	w.scratch = line
 	if len(line) <= w.cfg.MaxLength {
-		return append(append(b, line...), w.cfg.NewLine...)
+		return append(append(b, line...), w.cfg.NewLine...), ok
 	}
-	return foldCuts(b, line, w.cfg.MaxLength, w.cfg.NewLine, validCut)
+	if !ok {
+		cuts = nil
+	}
+	return foldCuts(b, line, w.cfg.MaxLength, w.cfg.NewLine, validCut, cuts), ok
 }
 
 // endLine ends the unfolded content line b[start:] as the library's
@@ -513,17 +519,22 @@ func libraryFold(b, s []byte, max int, newline string) []byte {
 	if len(s) > max && utf8.Valid(s) {
 		cut = validCut // the same cuts, faster
 	}
-	return foldCuts(b, s, max, newline, cut)
+	return foldCuts(b, s, max, newline, cut, nil)
 }
 
 // foldCuts is libraryFold with the cuts of cut, libraryCut or, for valid
-// UTF-8, validCut.
-func foldCuts(b, s []byte, max int, newline string, cut func(int, []byte) int) []byte {
+// UTF-8, validCut. With cuts it appends to *cuts each index of s a
+// physical line starts at, after the first.
+func foldCuts(b, s []byte, max int, newline string, cut func(int, []byte) int, cuts *[]int32) []byte {
 	if len(s) > max {
 		n := cut(max, s)
 		b = append(append(b, s[:n]...), newline...)
 		s = s[n:]
+		at := n
 		for len(s) > max-1 {
+			if cuts != nil {
+				*cuts = append(*cuts, int32(at))
+			}
 			n := cut(max-1, s)
 			if n == 0 {
 				// The library would loop here for ever (a rune longer
@@ -532,6 +543,10 @@ func foldCuts(b, s []byte, max int, newline string, cut func(int, []byte) int) [
 			}
 			b = append(append(append(b, ' '), s[:n]...), newline...)
 			s = s[n:]
+			at += n
+		}
+		if cuts != nil {
+			*cuts = append(*cuts, int32(at))
 		}
 		b = append(b, ' ')
 	}

@@ -269,6 +269,12 @@ type writer struct {
 	titles    [8]cleanMemo
 	nextTitle int
 
+	// descs are the DESCRIPTION lines of the last few titles (see
+	// descLine), kept from one calendar to the next: a line depends on
+	// its text and the serialization's configuration alone.
+	descs    [8]descMemo
+	nextDesc int
+
 	span offsetSpan // the last offset period looked up (see offsetAt)
 	day  dayDigits  // the last date written (see appendSeconds)
 
@@ -296,8 +302,11 @@ type writer struct {
 // the categories alone) and the scratch buffers.
 func (w *writer) reset(c *feed.Calendar) {
 	clear(w.catRecent)
+	for i := range w.descs {
+		w.descs[i].at = nil // the last calendar's strings may be memory used again
+	}
 	*w = writer{c: c, stamp: c.Stamp.UTC(), cats: w.cats, catKey: w.catKey[:0], catRecent: w.catRecent[:0],
-		events: w.events[:0], out: w.out[:0], scratch: w.scratch[:0]}
+		events: w.events[:0], out: w.out[:0], scratch: w.scratch[:0], descs: w.descs, nextDesc: w.nextDesc}
 }
 
 // prepare computes the per-calendar values of w, once its inputs are checked.

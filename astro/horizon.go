@@ -307,9 +307,10 @@ func (tr *track) sinAltitude(st *site, sec float64) float64 {
 
 // sinAltitudeNear is sinAltitude at sec where the local hour angle is
 // near target, whose cosine and sine ct and st are known (a crossing's
-// estimate): within 0.01 rad of it, the hour angle's cosine is taken from
-// theirs by the angle-addition formulas and short series in the
-// difference (cosNear) instead of by math.Cos, a third of an evaluation.
+// estimate, a meridian passage): within 0.01 rad of it, the hour angle's
+// cosine is taken from theirs by the angle-addition formulas and short
+// series in the difference (cosNear) instead of by math.Cos, a third of an
+// evaluation.
 func (tr *track) sinAltitudeNear(s *site, sec, target, ct, st float64) float64 {
 	k, w := tr.weights(sec)
 	H := tr.ghaFrom(sec, k, &w) + s.lon
@@ -474,10 +475,17 @@ func (tr *track) nextPassage(st *site, last *lastPassages, t, target, tol float6
 func (tr *track) refineExtremum(st *site, tp float64, upper bool) extremum {
 	const eps = 60.0 // s
 	maxShift := 0.45 * math.Pi / tr.rate
+	// the hour angle near the passage: 0 or π, whose cosine is ±1 and sine
+	// 0 (sinAltitudeNear: for the first step's three evaluations, ±4·10⁻³
+	// rad from it)
+	target, ct := 0.0, 1.0
+	if !upper {
+		target, ct = math.Pi, -1
+	}
 	t := tp
-	y0 := tr.sinAltitude(st, t)
+	y0 := tr.sinAltitudeNear(st, t, target, ct, 0)
 	for range 12 {
-		ym, yp := tr.sinAltitude(st, t-eps), tr.sinAltitude(st, t+eps)
+		ym, yp := tr.sinAltitudeNear(st, t-eps, target, ct, 0), tr.sinAltitudeNear(st, t+eps, target, ct, 0)
 		d1 := (yp - ym) / (2 * eps)
 		d2 := (yp - 2*y0 + ym) / (eps * eps)
 		if (upper && !(d2 < 0)) || (!upper && !(d2 > 0)) {
@@ -496,7 +504,7 @@ func (tr *track) refineExtremum(st *site, tp float64, upper bool) extremum {
 			return extremum{t: t + step, sinH: y0 + step*(d1+0.5*d2*step), upper: upper}
 		}
 		t += step
-		y0 = tr.sinAltitude(st, t)
+		y0 = tr.sinAltitudeNear(st, t, target, ct, 0)
 	}
 	return extremum{t: t, sinH: y0, upper: upper}
 }
@@ -774,7 +782,8 @@ func (tr *track) appendTransits(out []Transit, st *site, from, to time.Time) []T
 		}
 		if tp >= a {
 			if u := timeFromUnix(tp); !u.Before(from) && u.Before(to) {
-				out = append(out, Transit{Time: u, Altitude: math.Asin(tr.sinAltitude(st, tp)) * rad2deg})
+				// the hour angle is 0 there (to 1e-4 s)
+				out = append(out, Transit{Time: u, Altitude: math.Asin(tr.sinAltitudeNear(st, tp, 0, 1, 0)) * rad2deg})
 			}
 		}
 		t = tp + 1

@@ -72,6 +72,7 @@ type track struct {
 	// carry: crossings start from the misses of the days before (see
 	// crossingsMany); set for the Sun, whose misses change slowly
 	carry bool
+	kmax  int       // the last sample index weights returns: len(g) − 3
 	leaps []float64 // leap-second instants within the track (Unix s)
 	leap0 float64   // leap seconds since 1972 at start
 	rate  float64   // mean rate of the Greenwich hour angle, rad/s
@@ -104,7 +105,7 @@ func newTrack(start, step float64, n int, sample func(e Epoch) (ra, dec, dist, e
 // filled (fill, possibly by several goroutines over separate runs of
 // samples) and then finished.
 func allocTrack(start, step float64, n int) *track {
-	tr := &track{start: start, step: step, g: make([]float64, n), dec: make([]float64, n), dist: make([]float64, n)}
+	tr := &track{start: start, step: step, g: make([]float64, n), dec: make([]float64, n), dist: make([]float64, n), kmax: n - 3}
 	end := start + float64(n-1)*step
 	tr.leap0 = leapCount(start)
 	for _, l := range leapSeconds {
@@ -179,18 +180,16 @@ func (tr *track) coverage() (a, b float64) {
 // samples k−1..k+2 at Unix second sec.
 func (tr *track) weights(sec float64) (int, [4]float64) {
 	x := (sec - tr.start) / tr.step
-	k := int(math.Floor(x))
-	if k < 1 {
-		k = 1
-	} else if k > len(tr.g)-3 {
-		k = len(tr.g) - 3
-	}
+	// int(x) is math.Floor(x) wherever it is not clamped (x ≥ 0), and the
+	// signs are in the divisors: the same numbers, and a function small
+	// enough for the compiler to put in line
+	k := min(max(int(x), 1), tr.kmax)
 	p := x - float64(k)
 	pm1, pp1, pm2 := p-1, p+1, p-2
 	return k, [4]float64{
-		-p * pm1 * pm2 / 6,
+		p * pm1 * pm2 / -6,
 		pp1 * pm1 * pm2 / 2,
-		-pp1 * p * pm2 / 2,
+		pp1 * p * pm2 / -2,
 		pp1 * p * pm1 / 6,
 	}
 }
@@ -213,6 +212,9 @@ func (tr *track) decAt(sec float64) float64 {
 	return interp(tr.dec, k, &w)
 }
 
+// ghaFrom is the Greenwich hour angle at sec from the weights of sec:
+// interp(tr.g, k, w) written out, the same sum, so that the compiler puts
+// the function in line.
 func (tr *track) ghaFrom(sec float64, k int, w *[4]float64) float64 {
 	leaps := tr.leap0
 	for _, l := range tr.leaps {
@@ -220,7 +222,8 @@ func (tr *track) ghaFrom(sec float64, k int, w *[4]float64) float64 {
 			leaps++
 		}
 	}
-	return interp(tr.g, k, w) + siderealRate*(sec-tr.start) + siderealRate*leaps
+	s := tr.g[k-1 : k+3]
+	return w[0]*s[0] + w[1]*s[1] + w[2]*s[2] + w[3]*s[3] + siderealRate*(sec-tr.start) + siderealRate*leaps
 }
 
 // hourAngle returns the local hour angle (rad, not reduced) at sec.

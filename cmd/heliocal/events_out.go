@@ -474,12 +474,28 @@ func (c *dayCache) putStamp(st *[24]byte, ns int64) {
 		c.date(days)
 	}
 	*(*[10]byte)(st[:10]) = c.text
-	u := uint32(r)
-	h, m, s, f := u/3_600_000*2, u/60_000%60*2, u/1000%60*2, u%1000 // offsets in twoDigits, and the milliseconds
-	f2 := f % 100 * 2
-	st[11], st[12], st[14], st[15], st[17], st[18] = twoDigits[h], twoDigits[h+1], twoDigits[m], twoDigits[m+1], twoDigits[s], twoDigits[s+1]
-	st[20], st[21], st[22] = byte('0'+f/100), twoDigits[f2], twoDigits[f2+1]
+	s := uint32(r) / 1000
+	f := uint32(r) - s*1000
+	h := s / 3600
+	s -= h * 3600
+	m := s / 60
+	s -= m * 60
+	f1 := f / 100
+	*(*[2]byte)(st[11:13]) = digitPairs[uint8(h)]
+	*(*[2]byte)(st[14:16]) = digitPairs[uint8(m)]
+	*(*[2]byte)(st[17:19]) = digitPairs[uint8(s)]
+	st[20] = byte('0' + f1)
+	*(*[2]byte)(st[21:23]) = digitPairs[uint8(f-f1*100)]
 }
+
+// digitPairs holds the two digits of 0 to 99 at their index, in a table
+// that a byte indexes without a bounds check.
+var digitPairs = func() (p [256][2]byte) {
+	for n := range 100 {
+		p[n] = [2]byte{byte('0' + n/10), byte('0' + n%10)}
+	}
+	return p
+}()
 
 // twoDigits holds 00 to 99: the digits of n are twoDigits[2n:2n+2].
 const twoDigits = "00010203040506070809101112131415161718192021222324252627282930313233343536373839" +
@@ -558,8 +574,7 @@ func appendRounded(b []byte, x float64, digits int) []byte {
 		}
 		for ; digits >= 2; digits -= 2 {
 			p -= 2
-			q := frac % 100 * 2
-			d[p], d[p+1] = twoDigits[q], twoDigits[q+1]
+			*(*[2]byte)(d[p:]) = digitPairs[uint8(frac%100)]
 			frac /= 100
 		}
 		if digits == 1 {
@@ -571,13 +586,12 @@ func appendRounded(b []byte, x float64, digits int) []byte {
 	}
 	for whole >= 100 {
 		p -= 2
-		q := whole % 100 * 2
-		d[p], d[p+1] = twoDigits[q], twoDigits[q+1]
+		*(*[2]byte)(d[p:]) = digitPairs[uint8(whole%100)]
 		whole /= 100
 	}
 	if whole >= 10 {
 		p -= 2
-		d[p], d[p+1] = twoDigits[2*whole], twoDigits[2*whole+1]
+		*(*[2]byte)(d[p:]) = digitPairs[uint8(whole)]
 	} else {
 		p--
 		d[p] = byte('0' + whole)

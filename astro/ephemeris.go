@@ -430,15 +430,15 @@ func (e *Ephemeris) AppendSunCrossings(dst [][]Crossing, o Observer, altitudes [
 	for i, buf := range bufs {
 		cs := slices.Grow(dst[i][:0], len(buf))
 		for _, c := range buf {
-			us := unixMicros(c.t)
-			if ns := us * 1000; ns < fromNs || ns >= toNs {
+			whole, us := unixMicros(c.t)
+			if ns := whole*1e9 + us*1000; ns < fromNs || ns >= toNs {
 				continue
 			}
 			d := Setting
 			if c.rising {
 				d = Rising
 			}
-			cs = append(cs, Crossing{Time: time.UnixMicro(us).UTC(), Direction: d})
+			cs = append(cs, Crossing{Time: time.Unix(whole, us*1000).UTC(), Direction: d})
 		}
 		dst[i] = cs
 	}

@@ -33,3 +33,28 @@ func TestCosNear(t *testing.T) {
 		t.Error("cosNear accepted a difference of 0.0101 rad")
 	}
 }
+
+// TestUnixMicros: the crossings' rounding to the microsecond against its
+// definition by math.Floor and math.Round, over instants before and after
+// 1970, fractions of a second at random and at the halves of a
+// microsecond, and the fraction just below half a microsecond.
+func TestUnixMicros(t *testing.T) {
+	r := rand.New(rand.NewPCG(3, 4))
+	check := func(sec float64) {
+		t.Helper()
+		whole := math.Floor(sec)
+		wantUs := math.Round((sec - whole) * 1e6)
+		gotWhole, gotUs := unixMicros(sec)
+		if gotWhole != int64(whole) || gotUs != int64(wantUs) {
+			t.Fatalf("unixMicros(%v) = %d s %d µs, want %d s %v µs", sec, gotWhole, gotUs, int64(whole), wantUs)
+		}
+	}
+	for range 200000 {
+		sec := (r.Float64()*2 - 1) * 7e9 // 1748..2191
+		check(sec)
+		check(math.Floor(sec) + (math.Floor(r.Float64()*1e6)+0.5)*1e-6)
+	}
+	for _, sec := range []float64{0, -0.5e-6, 0.5e-6, math.Nextafter(0.5e-6, 0), 0.49999999999999994e-6, -1e-7, 1 - 1e-7, 1e9 + 0.9999996, -1e9 - 0.9999996} {
+		check(sec)
+	}
+}

@@ -63,18 +63,26 @@ func unixSeconds(t time.Time) float64 {
 
 // timeFromUnix converts float Unix seconds to a UTC time rounded to the microsecond.
 func timeFromUnix(sec float64) time.Time {
-	return time.UnixMicro(unixMicros(sec)).UTC()
+	whole, us := unixMicros(sec)
+	return time.Unix(whole, us*1000).UTC() // 1e6 µs is the next second
 }
 
 // unixMicros rounds float Unix seconds to whole microseconds: the whole
 // seconds (rounded down) and the fraction's microseconds, rounded, so that
-// the rounding does not depend on the size of sec. The whole seconds are
-// taken by a conversion to an integer, corrected for negative sec, which is
-// math.Floor's value for any |sec| < 2⁶³.
-func unixMicros(sec float64) int64 {
-	whole := int64(sec)
+// the rounding does not depend on the size of sec (us may be 1e6: the next
+// second). The whole seconds are taken by a conversion to an integer,
+// corrected for negative sec, which is math.Floor's value for any |sec| <
+// 2⁶³; the microseconds v ∈ [0, 1e6] are math.Round(v), taken as
+// ⌊v + 0.5⌋: for 0.5 ≤ v ≤ 1e6 the sum's rounding cannot reach the next
+// whole number (its distance from it is a multiple of v's last place), and
+// v below 0.5 gives 0.
+func unixMicros(sec float64) (whole, us int64) {
+	whole = int64(sec)
 	if float64(whole) > sec {
 		whole--
 	}
-	return whole*1e6 + int64(math.Round((sec-float64(whole))*1e6)) // 1e6 µs is the next second
+	if v := (sec - float64(whole)) * 1e6; v >= 0.5 {
+		us = int64(v + 0.5)
+	}
+	return whole, us
 }

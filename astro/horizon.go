@@ -317,8 +317,10 @@ func (tr *track) sinAltitude(st *site, sec float64) float64 {
 func (tr *track) sinAltitudeNear(s *site, sec, target, ct, st float64) float64 {
 	k, w := tr.weights(sec)
 	H := tr.ghaFrom(sec, k, &w) + s.lon
-	cH, ok := cosNear(H, target, ct, st)
-	if !ok {
+	var cH float64
+	if d := reduceNear(H, target); math.Abs(d) <= 0.01 {
+		cH = cosSmall(d, ct, st)
+	} else {
 		cH = math.Cos(H)
 	}
 	if tr.sd != nil {
@@ -337,20 +339,21 @@ const (
 	twoPiC = 8 * 2.69515142907905952645e-15
 )
 
-// cosNear returns cos H from the cosine ct and sine st of an angle target
-// when H lies within 0.01 rad of it modulo 2π (else false). H is reduced
-// in the three parts of 2π as math.Cos reduces its argument, so that the
-// difference d keeps its digits; the series of cos d and sin d are cut
-// where the next term is below 1e-17. The result agrees with math.Cos(H)
-// to a few units of the last place (TestCosNear).
-func cosNear(H, target, ct, st float64) (float64, bool) {
+// reduceNear returns H − target reduced modulo 2π to [−π, π], in the
+// three parts of 2π as math.Cos reduces its argument, so that a small
+// difference keeps its digits.
+func reduceNear(H, target float64) float64 {
 	n := math.Floor((H-target)*(1/(2*math.Pi)) + 0.5)
-	d := ((H - n*twoPiA) - n*twoPiB) - n*twoPiC - target
-	if !(math.Abs(d) <= 0.01) {
-		return 0, false
-	}
+	return ((H - n*twoPiA) - n*twoPiB) - n*twoPiC - target
+}
+
+// cosSmall returns cos(target + d) from the cosine ct and sine st of target,
+// for |d| ≤ 0.01: the series of cos d and sin d are cut where the next term
+// is below 1e-17. With reduceNear it agrees with math.Cos to a few units of
+// the last place (TestCosNear).
+func cosSmall(d, ct, st float64) float64 {
 	d2 := d * d
-	return ct*(1-d2*(0.5-d2*(1.0/24-d2*(1.0/720)))) - st*d*(1-d2*(1.0/6-d2*(1.0/120))), true
+	return ct*(1-d2*(0.5-d2*(1.0/24-d2*(1.0/720)))) - st*d*(1-d2*(1.0/6-d2*(1.0/120)))
 }
 
 // extremum is a node of the altitude curve: an upper or lower culmination

@@ -52,9 +52,12 @@ func (w *writer) descLine(b []byte, title, desc string) []byte {
 	max, newline := w.cfg.MaxLength, w.cfg.NewLine
 	var m *descMemo
 	at := unsafe.StringData(title)
-	for i := range w.descs {
+	// from the memo after the last one used: a feed's kinds take their
+	// turns in the same order from date to date
+	for n, i := 0, w.lastDesc; n < len(w.descs); n++ {
+		i = (i + 1) % len(w.descs)
 		if d := &w.descs[i]; d.set && len(d.title) == len(title) && (d.at == at || string(d.title) == title) {
-			m, d.at = d, at
+			m, d.at, w.lastDesc = d, at, i
 			break
 		}
 	}
@@ -62,7 +65,8 @@ func (w *writer) descLine(b []byte, title, desc string) []byte {
 		return append(b, m.line...)
 	}
 	if m == nil {
-		m = &w.descs[w.nextDesc%len(w.descs)]
+		w.lastDesc = w.nextDesc % len(w.descs)
+		m = &w.descs[w.lastDesc]
 		w.nextDesc++
 	}
 	m.set = false

@@ -272,8 +272,8 @@ type writer struct {
 	// descs are the DESCRIPTION lines of the last few titles (see
 	// descLine), kept from one calendar to the next: a line depends on
 	// its text and the serialization's configuration alone.
-	descs    [8]descMemo
-	nextDesc int
+	descs              [8]descMemo
+	nextDesc, lastDesc int
 
 	span offsetSpan // the last offset period looked up (see offsetAt)
 	day  dayDigits  // the last date written (see appendSeconds)
@@ -306,7 +306,7 @@ func (w *writer) reset(c *feed.Calendar) {
 		w.descs[i].at = nil // the last calendar's strings may be memory used again
 	}
 	*w = writer{c: c, stamp: c.Stamp.UTC(), cats: w.cats, catKey: w.catKey[:0], catRecent: w.catRecent[:0],
-		events: w.events[:0], out: w.out[:0], scratch: w.scratch[:0], descs: w.descs, nextDesc: w.nextDesc}
+		events: w.events[:0], out: w.out[:0], scratch: w.scratch[:0], descs: w.descs, nextDesc: w.nextDesc, lastDesc: w.lastDesc}
 }
 
 // prepare computes the per-calendar values of w, once its inputs are checked.

@@ -613,7 +613,10 @@ func (tr *track) crossingsMany(st *site, ext []extremum, sinH0s []float64, a, b 
 			} else {
 				fs = tr.sinAltitude(st, start) - sinH0
 			}
-			t := tr.solve(st, sinH0, e0.t, f0, e1.t, f1, start, fs, slope)
+			t, done := newtonDone(e0.t, f0, e1.t, start, fs, slope)
+			if !done {
+				t = tr.solve(st, sinH0, e0.t, f0, e1.t, f1, start, fs, slope)
+			}
 			if slope != 0 {
 				m.add(i, t-g)
 			} else {
@@ -720,8 +723,8 @@ func (tr *track) estimateFrom(st *site, sinH0 float64, e0, e1 *extremum, rising 
 func (tr *track) solve(st *site, sinH0, a, fa, b, fb, g, fg, slope float64) float64 {
 	f := func(t float64) float64 { return tr.sinAltitude(st, t) - sinH0 }
 	x0, f0 := g, fg
-	if f0 == 0 {
-		return x0
+	if x1, done := newtonDone(a, fa, b, x0, f0, slope); done {
+		return x1
 	}
 	if (f0 < 0) == (fa < 0) {
 		a, fa = x0, f0
@@ -764,6 +767,28 @@ func (tr *track) solve(st *site, sinH0, a, fa, b, fb, g, fg, slope float64) floa
 		x1, f1 = x2, f(x2)
 	}
 	return 0.5 * (a + b)
+}
+
+// newtonDone is solve's first step from x0, where the function is f0, in
+// the bracket [a, b] (fa at a) with the slope at x0 (0 if unknown): the
+// root x0 when f0 is 0, else x1 = x0 − f0/slope, and whether that ends the
+// search: x1 within the bracket narrowed by x0, less than 0.05 s from x0.
+// Small enough to be put in line where the crossings are solved: most end
+// here.
+func newtonDone(a, fa, b, x0, f0, slope float64) (float64, bool) {
+	if f0 == 0 {
+		return x0, true
+	}
+	if slope == 0 {
+		return 0, false
+	}
+	if (f0 < 0) == (fa < 0) {
+		a = x0
+	} else {
+		b = x0
+	}
+	x1 := x0 - f0/slope
+	return x1, x1 > a && x1 < b && math.Abs(x1-x0) < 0.05
 }
 
 // transitList returns the upper meridian transits (hour angle 0) as

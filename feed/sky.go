@@ -706,10 +706,17 @@ func (c *collector) add(k config.Kind) error {
 	if err := c.compute(k); err != nil {
 		return err
 	}
-	if everyDate[k.Name] {
+	if everyDate[k.Name] && !crossingKinds[k.Name] {
 		c.noteSilent(k, n0, m0)
 	}
 	return nil
+}
+
+// crossingKinds are the daily kinds of collector.crossings, which notes
+// the dates without an event itself.
+var crossingKinds = map[string]bool{
+	"sunrise": true, "sunset": true, "civil-dawn": true, "civil-dusk": true, "nautical-dawn": true,
+	"nautical-dusk": true, "astronomical-dawn": true, "astronomical-dusk": true, "sun-altitude": true,
 }
 
 // everyDate are the kinds with an event or a note on every local date.
@@ -937,7 +944,8 @@ func altitudes(o astro.Observer, specs []config.KindSpec) []float64 {
 
 // crossings adds the crossings of a threshold altitude in one direction
 // (both when dir is 0), and a note for each date without any crossing,
-// saying on which side of the threshold the Sun stays.
+// saying on which side of the threshold the Sun stays, or without one in
+// that direction (state Crosses, as noteSilent gives).
 func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, family string) error {
 	th, err := c.threshold(alt)
 	if err != nil {
@@ -973,12 +981,14 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 				}
 			}
 		}
+		listed := false
 		for j := range xs {
 			x := &xs[j]
 			up = x.Direction == astro.Rising
 			if dir != 0 && x.Direction != dir || keep >= 0 && j != keep {
 				continue
 			}
+			listed = true
 			// the event is written in its place in the slice (grown above),
 			// field by field: a literal would be built aside and copied
 			c.events = c.events[:len(c.events)+1]
@@ -1019,6 +1029,10 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 				}
 			}
 			c.notes = append(c.notes, n)
+		} else if !listed {
+			// crossed the other way only: the event passed to a
+			// neighbouring date (noteSilent's note)
+			c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.Crosses, Family: "no-event:" + k.String()})
 		}
 	}
 	return nil

@@ -966,24 +966,25 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 	c.events = slices.Grow(c.events, len(th.xs))
 	starts := c.dayStarts()
 	byDate := c.dateCrossings(th)
-	for i, d := range c.dayDates() {
-		xs := th.xs[byDate[i]:byDate[i+1]] // the date's crossings
-		up := th.upFirst                   // the Sun above alt: as the last crossing left it
-		if byDate[i] > 0 {
-			up = th.xs[byDate[i]-1].Direction == astro.Rising
+	dates := c.dayDates()
+	for i := range dates {
+		lo, hi := int(byDate[i]), int(byDate[i+1]) // the date's crossings: th.xs[lo:hi]
+		up := th.upFirst                           // the Sun above alt: as the last crossing left it
+		if lo > 0 {
+			up = th.xs[lo-1].Direction == astro.Rising
 		}
-		crossed := len(xs) > 0
+		crossed := hi > lo
 		keep := -1 // with a skyline: only the date's first appearance, last disappearance
 		if horizon && alt == skylineKey {
-			for j := range xs {
-				if xs[j].Direction == dir && (keep < 0 || dir == astro.Setting) {
+			for j := lo; j < hi; j++ {
+				if th.xs[j].Direction == dir && (keep < 0 || dir == astro.Setting) {
 					keep = j
 				}
 			}
 		}
 		listed := false
-		for j := range xs {
-			x := &xs[j]
+		for j := lo; j < hi; j++ {
+			x := &th.xs[j]
 			up = x.Direction == astro.Rising
 			if dir != 0 && x.Direction != dir || keep >= 0 && j != keep {
 				continue
@@ -994,7 +995,7 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 			c.events = c.events[:len(c.events)+1]
 			e := &c.events[len(c.events)-1]
 			*e = Event{}
-			e.Kind, e.Start, e.Direction, e.Date = k, x.Time, x.Direction, d
+			e.Kind, e.Start, e.Direction, e.Date = k, x.Time, x.Direction, dates[i]
 			if horizon {
 				e.DayLength, e.DayChange = c.lengths[i+1], c.lengths[i+1]-c.lengths[i]
 				if late != nil && !up && x.Time.Equal(late[i+1]) {
@@ -1012,6 +1013,7 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 			}
 		}
 		if !crossed {
+			d := dates[i]
 			n := Note{Kind: k, Date: d, State: astro.AlwaysBelow, Family: family}
 			if up {
 				n.State = astro.AlwaysAbove
@@ -1032,7 +1034,7 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 		} else if !listed {
 			// crossed the other way only: the event passed to a
 			// neighbouring date (noteSilent's note)
-			c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.Crosses, Family: "no-event:" + k.String()})
+			c.notes = append(c.notes, Note{Kind: k, Date: dates[i], State: astro.Crosses, Family: "no-event:" + k.String()})
 		}
 	}
 	return nil

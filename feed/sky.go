@@ -1349,7 +1349,7 @@ func (c *collector) dayEnds(alt float64) ([]time.Time, error) {
 		if rise.Direction != astro.Rising || set.Direction != astro.Setting || set.Time.Sub(rise.Time) >= 24*time.Hour {
 			continue
 		}
-		d := localDate(rise.Time, c.p.Location)
+		d := c.zone().date(rise.Time)
 		i := daysBetween(first, d)
 		if i < 0 || i >= len(late) || !set.Time.After(c.nextMidnight(d)) {
 			continue
@@ -1459,7 +1459,7 @@ func (c *collector) noons(k config.Kind) error {
 		return err
 	}
 	for _, t := range ts {
-		d := localDate(t.Time, c.p.Location)
+		d := c.zone().date(t.Time)
 		if c.inRange(d) {
 			c.events = append(c.events, Event{Kind: k, Start: t.Time, Date: d, Altitude: t.Altitude})
 		}

@@ -1141,21 +1141,6 @@ func (c *collector) dayStarts() []time.Time {
 	return c.starts
 }
 
-// nextMidnight returns the local midnight that ends the local date d
-// (first-2..last+1), from dayStarts where it has it.
-func (c *collector) nextMidnight(d time.Time) time.Time {
-	starts := c.dayStarts() // the dates first-1..last+2
-	// first is a date at 00:00 UTC, where a day is 24 h: two days before
-	// it by Add, not AddDate's calendar arithmetic (a thousand
-	// instructions, once per date)
-	if base := c.first.Add(-48 * time.Hour); !d.Before(base) {
-		if j := daysBetween(base, d); j < len(starts) { // d+1 is date first-1+j
-			return starts[j]
-		}
-	}
-	return midnight(d.AddDate(0, 0, 1), c.p.Location)
-}
-
 // noonOf returns the Sun's upper transit (solar noon, with its altitude)
 // on the local date d (first..last), computed once for all dates; false
 // when the date has none.
@@ -1342,16 +1327,18 @@ func (c *collector) dayEnds(alt float64) ([]time.Time, error) {
 	if th.lateEnds != nil {
 		return th.lateEnds, nil
 	}
-	first := c.first.AddDate(0, 0, -2)
-	late := c.times(daysBetween(first, c.last) + 2)
+	late := c.times(daysBetween(c.first, c.last) + 4)
+	base := c.first.Unix()/secondsPerDay - 2 // the day number of first-2
+	starts := c.dayStarts()                  // starts[i]: the midnight ending the date first-2+i
 	for k := 0; k+1 < len(th.xs); k++ {
-		rise, set := th.xs[k], th.xs[k+1]
-		if rise.Direction != astro.Rising || set.Direction != astro.Setting || set.Time.Sub(rise.Time) >= 24*time.Hour {
+		rise, set := &th.xs[k], &th.xs[k+1]
+		if rise.Direction != astro.Rising || set.Direction != astro.Setting {
 			continue
 		}
-		d := c.zone().date(rise.Time)
-		i := daysBetween(first, d)
-		if i < 0 || i >= len(late) || !set.Time.After(c.nextMidnight(d)) {
+		// instants compared as Unix nanoseconds, as the crossings' loop does
+		r, s := rise.Time.UnixNano(), set.Time.UnixNano()
+		i := int(c.zone().day(rise.Time) - base)
+		if s-r >= int64(24*time.Hour) || i < 0 || i >= len(late) || s <= starts[i].UnixNano() {
 			continue
 		}
 		late[i] = set.Time

@@ -1380,16 +1380,17 @@ func (c *collector) aboveFrom(alt float64, back int) ([]time.Duration, error) {
 	}
 	n := daysBetween(c.first, c.last) + 1 + back
 	lengths := c.durations(n)
-	cur := from
+	// instants as Unix nanoseconds, as the crossings' loop has them
+	cur := from.UnixNano()
 	starts := c.dayStarts()
 	for day := 0; day < n; {
-		dayEnd := starts[day-back+2]
-		next, crossing := dayEnd, len(xs) > 0 && xs[0].Time.Before(dayEnd)
+		next := starts[day-back+2].UnixNano() // the date's end
+		crossing := len(xs) > 0 && xs[0].Time.UnixNano() < next
 		if crossing {
-			next = xs[0].Time
+			next = xs[0].Time.UnixNano()
 		}
 		if up {
-			lengths[day] += next.Sub(cur)
+			lengths[day] += time.Duration(next - cur)
 		}
 		cur = next
 		if crossing {

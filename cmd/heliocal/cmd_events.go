@@ -454,8 +454,8 @@ func toJSONEvent(e feed.Event) jsonEvent {
 			j.DayLength = &s
 		}
 	}
-	if e.Kind.Name == "daily-summary" {
-		j.DayChange = seconds(e.DayChange)
+	if e.Kind.Name == "daily-summary" { // a change of 0 too (polar night, midnight sun): the field is always there
+		j.DayChange = roundTo(e.DayChange.Seconds(), 3)
 	}
 	if e.Kind.Name == config.KindLighting {
 		l := math.Round(e.Lamp.Seconds()*1000) / 1000

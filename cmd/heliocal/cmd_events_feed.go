@@ -197,6 +197,15 @@ func toJSONEntry(cal *feed.Calendar, e *feed.Entry) jsonEntry {
 		j.Distance = &d
 	}
 	j.DayLength, j.DayChange, j.Lamp = seconds(f.DayLength), seconds(f.DayChange), seconds(f.Lamp)
+	if !f.Note { // the kinds whose events carry a day length carry it when it is 0 too, as without --feed
+		switch base, _, _ := strings.Cut(e.Kind, ":"); base {
+		case "sunrise", "sunset", "photoperiod", config.KindLighting, "daily-summary":
+			j.DayLength = roundTo(f.DayLength.Seconds(), 3)
+		}
+		if e.Kind == "daily-summary" {
+			j.DayChange = roundTo(f.DayChange.Seconds(), 3)
+		}
+	}
 	if f.DirectSun { // time above the skyline, not sunrise to sunset; 0 in a shaded valley
 		j.DirectSun, j.DayLength = roundTo(f.DayLength.Seconds(), 3), nil
 	}

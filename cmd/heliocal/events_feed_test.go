@@ -378,3 +378,79 @@ func TestEventsHorizonSkylineFlag(t *testing.T) {
 		}
 	}
 }
+
+// A day length of 0 (polar night) and a change of 0 from the day before
+// (polar night or midnight Sun on both dates) are values, written as 0 in
+// the JSON and CSV of events with --kinds and with --feed alike, not left
+// out as if unknown. At 78.2° N, 15.6° E the Sun stays below the horizon on
+// 31 December 2026 and 1 January 2027 and above it on 31 May and 1 June
+// 2027 (PyEphem 4.1.4, upper limb, 34′ refraction: next_rising raises
+// NeverUpError and AlwaysUpError on those dates).
+func TestZeroDayLengthAndChangeWritten(t *testing.T) {
+	const cfgText = `sites:
+  - {id: isfjord-hut, latitude: 78.2, longitude: 15.6, timezone: Arctic/Longyearbyen}
+feeds:
+  - id: hut-day
+    site: isfjord-hut
+    kinds: [daily-summary, "lighting:16h"]
+`
+	cfg := writeConfig(t, cfgText)
+	for _, tc := range []struct {
+		date      string
+		dayLength float64
+	}{{"2027-01-01", 0}, {"2027-06-01", 86400}} {
+		for _, args := range [][]string{
+			{"events", "--lat", "78.2", "--lon", "15.6", "--tz", "Arctic/Longyearbyen", "--kinds", "daily-summary,lighting:16h"},
+			{"--config", cfg, "events", "--feed", "hut-day"},
+		} {
+			args = append(args, "--from", tc.date, "--to", tc.date, "--format", "json")
+			code, out, errOut := runCLI(t, args...)
+			if code != 0 {
+				t.Fatalf("%v: exit %d: %s", args, code, errOut)
+			}
+			var doc struct {
+				Events  []map[string]any `json:"events"`
+				Entries []map[string]any `json:"entries"`
+			}
+			if err := json.Unmarshal([]byte(out), &doc); err != nil {
+				t.Fatalf("%v: %v\n%s", args, err, out)
+			}
+			summaries, lamps := 0, 0
+			for _, e := range append(doc.Events, doc.Entries...) {
+				if e["note"] == true { // --feed: the all-day note of dates that need no lamps
+					continue
+				}
+				switch e["kind"] {
+				case "daily-summary":
+					summaries++
+					if e["day_length_s"] != tc.dayLength || e["day_change_s"] != 0.0 {
+						t.Errorf("%v: daily summary %v, want day_length_s %v and day_change_s 0", args, e, tc.dayLength)
+					}
+				case "lighting:16h":
+					lamps++
+					if e["day_length_s"] != 0.0 {
+						t.Errorf("%v: lamps %v, want day_length_s 0", args, e)
+					}
+				}
+			}
+			if wantLamps := map[bool]int{true: 1, false: 0}[tc.dayLength == 0]; summaries != 1 || lamps != wantLamps {
+				t.Errorf("%v: %d summaries and %d lamp periods, want 1 and %d:\n%s", args, summaries, lamps, wantLamps, out)
+			}
+			csvArgs := append(args[:len(args)-1:len(args)-1], "csv")
+			code, out, errOut = runCLI(t, csvArgs...)
+			rows, err := csv.NewReader(strings.NewReader(out)).ReadAll()
+			if code != 0 || err != nil || len(rows) < 2 {
+				t.Fatalf("%v: exit %d, %v: %s%s", csvArgs, code, err, out, errOut)
+			}
+			col := map[string]int{}
+			for i, h := range rows[0] {
+				col[h] = i
+			}
+			for _, r := range rows[1:] {
+				if r[col["kind"]] == "daily-summary" && (r[col["day_length_s"]] == "" || r[col["day_change_s"]] != "0") {
+					t.Errorf("%v: CSV daily summary %v", csvArgs, r)
+				}
+			}
+		}
+	}
+}

@@ -644,10 +644,10 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 	b := append(w.text, pt.lead...)
 	if pd.anchored {
 		b = append(append(append(append(b, "Date: "...), pt.rule...), " ("...), pt.anchorName(pd.kind)...)
-		b = z.appendStamp(append(b, ' '), pd.at)
+		b = z.appendStamp(append(b, ' '), ToMinute(pd.at)) // to the minute: rounded, as every output
 		for _, a := range pd.also {
 			b = append(append(b, "; "...), pt.anchorName(a.kind)...)
-			b = z.appendStamp(append(b, ' '), a.at)
+			b = z.appendStamp(append(b, ' '), ToMinute(a.at))
 		}
 		b = append(b, ").\n"...)
 	}

@@ -372,3 +372,33 @@ func TestPlanCautionOnlyForSkyTimes(t *testing.T) {
 		}
 	}
 }
+
+// The anchor named in a plan's description is shown to the minute by the
+// one rounding rule, rounded, not cut: USNO moon-phase data
+// (testdata/reference/moon-phases.csv, times rounded to the minute): new
+// moon 2024-05-08 03:22 UT (mp-0081), 2024-06-06 12:38 UT (mp-0085) and
+// 2024-12-30 22:27 UT (mp-0113), each 4 to 16 s before the minute that
+// USNO names; London keeps BST (UT+1) in May and June, GMT in December.
+// 6 June 2024 was a Thursday, 30 December 2024 a Monday (Gregorian
+// calendar): the Saturdays nearest are 8 June and 28 December.
+func TestPlanAnchorRoundedToMinute(t *testing.T) {
+	london := site(t, "london", 51.5, -0.13, "Europe/London")
+	es := planEntries(t, london, "2024-05-01", "2024-12-31", config.Plan{Title: "Night", Date: "saturday nearest new-moon"})
+	want := map[string]string{
+		"2024-05-11": "(new moon Wed 8 May 2024 04:22 BST)",
+		"2024-06-08": "(new moon Thu 6 Jun 2024 13:38 BST)",
+		"2024-12-28": "(new moon Mon 30 Dec 2024 22:27 GMT)",
+	}
+	for _, e := range es {
+		d := e.Date.Format(time.DateOnly)
+		if w, ok := want[d]; ok {
+			if !strings.Contains(e.Description, w) {
+				t.Errorf("%s: description\n%s\nwant %s", d, e.Description, w)
+			}
+			delete(want, d)
+		}
+	}
+	if len(want) > 0 {
+		t.Errorf("no entries on %v", want)
+	}
+}

@@ -191,8 +191,16 @@ func (e *Ephemeris) query(o Observer, from, to time.Time) (*site, error) {
 }
 
 // coverage is the span an ephemeris (the Sun's or the Moon's) answers
-// queries for.
-type coverage struct{ from, to time.Time }
+// queries for, with its ends' whole Unix seconds for checkSpan's test.
+type coverage struct {
+	from, to   time.Time
+	fromS, toS int64
+}
+
+// newCoverage returns the coverage [from, to].
+func newCoverage(from, to time.Time) coverage {
+	return coverage{from: from, to: to, fromS: from.Unix(), toS: to.Unix()}
+}
 
 // Coverage returns the span in which the ephemeris answers queries.
 func (c coverage) Coverage() (from, to time.Time) { return c.from, c.to }
@@ -215,9 +223,11 @@ func (c coverage) check(o Observer, from, to time.Time) error {
 }
 
 // checkSpan returns a *RangeError when from or to lies outside the coverage.
-// A single instant (from == to, an azimuth) is compared once.
+// An instant whose whole Unix second lies strictly between those of the
+// ends is within it (a query's usual case: an azimuth per sunrise); one in
+// an end's second is compared to the nanosecond.
 func (c coverage) checkSpan(from, to time.Time) error {
-	if !from.Before(c.from) && !from.After(c.to) && (to == from || !to.Before(c.from) && !to.After(c.to)) {
+	if f, t := from.Unix(), to.Unix(); c.fromS < f && f < c.toS && c.fromS < t && t < c.toS {
 		return nil
 	}
 	for _, t := range [2]time.Time{from, to} {
@@ -277,7 +287,7 @@ func newEphemeris(from, to time.Time, useTable bool) (*Ephemeris, error) {
 	sunSamples(start, k1, n, put)
 	tr.finish()
 	tr.carry = true
-	return &Ephemeris{coverage: coverage{qa, qb}, sun: tr}, nil
+	return &Ephemeris{coverage: newCoverage(qa, qb), sun: tr}, nil
 }
 
 // sunSamples computes the Sun's samples k0..k1−1 at 0h UTC of the days

@@ -78,7 +78,7 @@ func NewMoonEphemeris(from, to time.Time) (*MoonEphemeris, error) {
 		s := moonApparentFrom(e.JDE, lon[k], lat[k], dist[k])
 		return s.ra, s.dec, s.dist / earthRadiusKm, s.eqEq
 	})
-	return &MoonEphemeris{coverage: coverage{qa, qb}, moon: tr, sun: sun}, nil
+	return &MoonEphemeris{coverage: newCoverage(qa, qb), moon: tr, sun: sun}, nil
 }
 
 // Sun returns the Sun's ephemeris over the same span, built with the Moon's.

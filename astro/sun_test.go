@@ -267,6 +267,46 @@ func TestRangeErrors(t *testing.T) {
 	}
 }
 
+// TestCoverageEnds checks that the queries of an instant (SunAzimuth,
+// MoonAzimuth) accept the ends of Coverage() and refuse a nanosecond beyond
+// them, with ends that fall within a second (a span starting at 12:00:00.5).
+func TestCoverageEnds(t *testing.T) {
+	from := time.Date(2027, 3, 1, 12, 0, 0, 500_000_000, time.UTC)
+	to := from.AddDate(0, 1, 0)
+	o := Observer{Latitude: 47.3, Longitude: 8.5}
+	sun, err := NewEphemeris(from, to)
+	if err != nil {
+		t.Fatal(err)
+	}
+	moon, err := NewMoonEphemeris(from, to)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for name, e := range map[string]interface {
+		Coverage() (time.Time, time.Time)
+	}{"Sun": sun, "Moon": moon} {
+		azimuth := func(tm time.Time) error {
+			if name == "Sun" {
+				_, err := sun.SunAzimuth(o, tm)
+				return err
+			}
+			_, err := moon.MoonAzimuth(o, tm)
+			return err
+		}
+		lo, hi := e.Coverage()
+		for _, tm := range []time.Time{lo, lo.Add(time.Nanosecond), lo.Add(400 * time.Millisecond), hi.Add(-400 * time.Millisecond), hi} {
+			if err := azimuth(tm); err != nil {
+				t.Errorf("%s at %v: %v", name, tm, err)
+			}
+		}
+		for _, tm := range []time.Time{lo.Add(-time.Nanosecond), lo.Add(-400 * time.Millisecond), hi.Add(time.Nanosecond), hi.Add(400 * time.Millisecond)} {
+			if !errors.Is(azimuth(tm), ErrOutOfRange) {
+				t.Errorf("%s at %v (outside %v..%v): no range error", name, tm, lo, hi)
+			}
+		}
+	}
+}
+
 // TestCrossQuarters checks the cross-quarter instants lie in early
 // February, May, August and November, in order, and that
 // SolarLongitudeTime reproduces Seasons.

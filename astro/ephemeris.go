@@ -207,7 +207,7 @@ func (c coverage) Coverage() (from, to time.Time) { return c.from, c.to }
 
 // query checks the observer and the span [from, to] of a query and returns
 // the observer's site for the track search.
-func (c coverage) query(o Observer, from, to time.Time) (*site, error) {
+func (c *coverage) query(o Observer, from, to time.Time) (*site, error) {
 	if err := c.check(o, from, to); err != nil {
 		return nil, err
 	}
@@ -215,7 +215,7 @@ func (c coverage) query(o Observer, from, to time.Time) (*site, error) {
 }
 
 // check checks the observer and the span [from, to] of a query.
-func (c coverage) check(o Observer, from, to time.Time) error {
+func (c *coverage) check(o Observer, from, to time.Time) error {
 	if err := o.Validate(); err != nil {
 		return err
 	}
@@ -226,7 +226,7 @@ func (c coverage) check(o Observer, from, to time.Time) error {
 // An instant whose whole Unix second lies strictly between those of the
 // ends is within it (a query's usual case: an azimuth per sunrise); one in
 // an end's second is compared to the nanosecond.
-func (c coverage) checkSpan(from, to time.Time) error {
+func (c *coverage) checkSpan(from, to time.Time) error {
 	if f, t := from.Unix(), to.Unix(); c.fromS < f && f < c.toS && c.fromS < t && t < c.toS {
 		return nil
 	}

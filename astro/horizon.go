@@ -271,15 +271,15 @@ func (st *site) sinAltitudeFrom(H, dec, dist float64) float64 {
 // sinAltitudeSC is sinAltitudeFrom with the declination's sine and cosine
 // given.
 func (st *site) sinAltitudeSC(H, sd, cd, dist float64) float64 {
-	// topoVector written out: this is the searches' inner loop, and the
-	// compiler does not inline topoVector
-	// only y² enters, as (dist·cd)²·(1 − cos²H): a cosine costs half
-	// a sine and cosine
 	return st.sinAltitudeCos(math.Cos(H), sd, cd, dist)
 }
 
 // sinAltitudeCos is sinAltitudeSC with the cosine of the hour angle given.
 func (st *site) sinAltitudeCos(cH, sd, cd, dist float64) float64 {
+	// topoVector written out: this is the searches' inner loop, and the
+	// compiler does not inline topoVector
+	// only y² enters, as (dist·cd)²·(1 − cos²H): a cosine costs half
+	// a sine and cosine
 	dc := dist * cd
 	x := dc*cH - st.rhoCos
 	z := dist*sd - st.rhoSin
@@ -312,8 +312,8 @@ func (tr *track) sinAltitude(st *site, sec float64) float64 {
 // near target, whose cosine and sine ct and st are known (a crossing's
 // estimate, a meridian passage): within 0.01 rad of it, the hour angle's
 // cosine is taken from theirs by the angle-addition formulas and short
-// series in the difference (cosNear) instead of by math.Cos, a third of an
-// evaluation.
+// series in the difference (reduceNear, cosSmall) instead of by math.Cos,
+// a third of an evaluation.
 func (tr *track) sinAltitudeNear(s *site, sec, target, ct, st float64) float64 {
 	k, w := tr.weights(sec)
 	H := tr.ghaFrom(sec, k, &w) + s.lon

@@ -10,7 +10,6 @@ import (
 	"strconv"
 	"time"
 	"unicode/utf8"
-	"unsafe"
 
 	"heliocal/astro"
 	"heliocal/config"
@@ -397,13 +396,14 @@ func dirIndex(d astro.Direction) int {
 	return 0
 }
 
-// sameKind is a == b, written out so that it is inlined, kinds whose
-// names differ in length are told apart at once, and names that are the
-// same string (an event's kind is a copy of its kind spec's) are not
-// compared byte by byte.
+// sameKind is a == b, written out so that it is inlined and kinds whose
+// names differ in length are told apart at once. Names that are the same
+// string (an event's kind is a copy of its kind spec's) are not compared
+// byte by byte: the runtime's comparison returns at once on the same
+// array.
 func sameKind(a, b *config.Kind) bool {
 	return len(a.Name) == len(b.Name) && a.Altitude == b.Altitude && a.High == b.High &&
-		a.DayLength == b.DayLength && (unsafe.StringData(a.Name) == unsafe.StringData(b.Name) || a.Name == b.Name)
+		a.DayLength == b.DayLength && a.Name == b.Name
 }
 
 // plainJSONKinds are the kinds whose JSON event.event writes itself, with

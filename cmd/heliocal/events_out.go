@@ -70,10 +70,16 @@ type dayCache struct {
 
 // appendDay appends the date of the day numbered days from 1970-01-01.
 func (c *dayCache) appendDay(b []byte, days int64) []byte {
+	return append(b, c.dateText(days)[:]...)
+}
+
+// dateText returns the text of the day numbered days from 1970-01-01,
+// made once for the days in a row that are the same.
+func (c *dayCache) dateText(days int64) *[10]byte {
 	if c.day != days+1 {
 		c.date(days)
 	}
-	return append(b, c.text[:]...)
+	return &c.text
 }
 
 // date makes the day numbered days from 1970-01-01 the cached one.
@@ -325,10 +331,8 @@ func (j *jsonSink) plainEvent(b []byte, k *jsonKind, t *jsonTemplate, e *feed.Ev
 	*w = t.text
 	b = b[:n+t.n]
 	j.days.putStamp((*[24]byte)(w[t.start:t.start+24]), e.Start.UnixNano())
-	if d, _ := floorDiv(e.Date.Unix(), 86400); j.days.day != d+1 {
-		j.days.date(d)
-	}
-	*(*[10]byte)(w[t.date : t.date+10]) = j.days.text
+	d, _ := floorDiv(e.Date.Unix(), 86400)
+	*(*[10]byte)(w[t.date : t.date+10]) = *j.days.dateText(d)
 	switch {
 	case k.noon:
 		b = appendRounded(b, e.Altitude, 4)
@@ -470,10 +474,7 @@ func (c *dayCache) appendUTCMillis(b []byte, t time.Time) []byte {
 func (c *dayCache) putStamp(st *[24]byte, ns int64) {
 	ms, _ := floorDiv(ns+500_000, 1_000_000) // half a millisecond rounds up, as time.Round
 	days, r := floorDiv(ms, 86_400_000)
-	if c.day != days+1 {
-		c.date(days)
-	}
-	*(*[10]byte)(st[:10]) = c.text
+	*(*[10]byte)(st[:10]) = *c.dateText(days)
 	s := uint32(r) / 1000
 	f := uint32(r) - s*1000
 	h := s / 3600

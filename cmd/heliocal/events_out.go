@@ -461,11 +461,9 @@ func (c *dayCache) appendUTCMillis(b []byte, t time.Time) []byte {
 	days, r := floorDiv(sec, 86400)
 	b = c.appendDay(b, days)
 	s := uint(r)
-	h, m := s/3600*2, s/60%60*2 // offsets in twoDigits
-	s = s % 60 * 2
-	f := ms % 100 * 2
-	return append(b, 'T', twoDigits[h], twoDigits[h+1], ':', twoDigits[m], twoDigits[m+1], ':',
-		twoDigits[s], twoDigits[s+1], '.', byte('0'+ms/100), twoDigits[f], twoDigits[f+1], 'Z')
+	h, m, f := digitPairs[uint8(s/3600)], digitPairs[uint8(s/60%60)], digitPairs[uint8(ms%100)]
+	sp := digitPairs[uint8(s%60)]
+	return append(b, 'T', h[0], h[1], ':', m[0], m[1], ':', sp[0], sp[1], '.', byte('0'+ms/100), f[0], f[1], 'Z')
 }
 
 // putStamp writes the instant ns (Unix nanoseconds) rounded to the
@@ -497,11 +495,6 @@ var digitPairs = func() (p [256][2]byte) {
 	}
 	return p
 }()
-
-// twoDigits holds 00 to 99: the digits of n are twoDigits[2n:2n+2].
-const twoDigits = "00010203040506070809101112131415161718192021222324252627282930313233343536373839" +
-	"40414243444546474849505152535455565758596061626364656667686970717273747576777879" +
-	"8081828384858687888990919293949596979899"
 
 // appendCivilDate appends the UTC date of t as YYYY-MM-DD.
 func (c *dayCache) appendCivilDate(b []byte, t time.Time) []byte {

@@ -119,13 +119,9 @@ type jsonTemplate struct {
 // bytes fits.
 const jsonTemplateSize = 192
 
-// template returns the text of k's events in direction d without end or
-// part, making it the first time; nil when it does not fit.
+// template makes the text of the plain kind k's events in direction d
+// without end or part, and returns it; nil when it does not fit.
 func (k *jsonKind) template(d astro.Direction) *jsonTemplate {
-	dir := dirIndex(d)
-	if t := k.tmpl[dir]; t != nil || !k.plain {
-		return t
-	}
 	b := append([]byte{','}, k.head...)
 	start := len(b)
 	b = append(b, "0000-00-00T00:00:00.000Z"...)
@@ -145,7 +141,7 @@ func (k *jsonKind) template(d astro.Direction) *jsonTemplate {
 	}
 	t := &jsonTemplate{n: len(b), start: start, date: date}
 	copy(t.text[:], b)
-	k.tmpl[dir] = t
+	k.tmpl[dirIndex(d)] = t
 	return t
 }
 
@@ -244,7 +240,13 @@ func (j *jsonSink) ordered(evs []feed.Event, order, spec []int32) error {
 		if k == nil || !sameKind(&k.kind, &e.Kind) {
 			k = j.kindOf(e, spec, o)
 		}
-		if t := k.tmpl[dirIndex(e.Direction)]; t != nil && e.End.IsZero() && e.Part == "" && !e.DirectSun &&
+		// nearly every event of a long listing: its kind's text with the
+		// digits written in, the text made the first time
+		t := k.tmpl[dirIndex(e.Direction)]
+		if t == nil && k.plain {
+			t = k.template(e.Direction)
+		}
+		if t != nil && e.End.IsZero() && e.Part == "" && !e.DirectSun &&
 			j.events > 0 && cap(j.buf)-len(j.buf) >= jsonTemplateSize {
 			j.buf = j.plainEvent(j.buf, k, t, e)
 			j.events++
@@ -271,15 +273,6 @@ func (j *jsonSink) flush() error {
 // over a skyline, with its direct_sun_s) through toJSONEvent and
 // encoding/json.
 func (j *jsonSink) event(e *feed.Event, k *jsonKind) {
-	if j.events > 0 && e.End.IsZero() && e.Part == "" && !e.DirectSun {
-		// nearly every event of a long listing: its kind's text with the
-		// digits written in (the chunk's loop finds the text made)
-		if t := k.template(e.Direction); t != nil && cap(j.buf)-len(j.buf) >= jsonTemplateSize {
-			j.events++
-			j.buf = j.plainEvent(j.buf, k, t, e)
-			return
-		}
-	}
 	b := j.buf
 	if j.events > 0 {
 		b = append(b, ',')

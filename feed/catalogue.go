@@ -141,7 +141,7 @@ func (sky *Sky) Calendar(ctx context.Context, s *config.Site, f *config.Feed, fi
 		return nil, fmt.Errorf("feed %q: %w", f.ID, err)
 	}
 	cal.Entries, cal.text = entries, text
-	noteLampLimitGaps(s, f, cal, gaps.gaps, gaps.known)
+	noteLampLimitGaps(s, f, cal, gaps)
 	return cal, nil
 }
 

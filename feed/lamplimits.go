@@ -188,16 +188,17 @@ func (g LampLimitGap) lampLimitSentence() string {
 // noteLampLimitGaps keeps in cal.LampLimitGaps the limits of f that do
 // nothing on some of cal's dates, and adds to cal's description, after the
 // meaning of each lighting kind of f, the sentence of each of them. gaps
-// are those limits when known (found as the entries were written,
-// known); lampLimitGaps finds them otherwise.
-func noteLampLimitGaps(s *config.Site, f *config.Feed, cal *Calendar, gaps []LampLimitGap, known bool) {
+// are those limits when found as the entries were written (not nil);
+// lampLimitGaps finds them otherwise.
+func noteLampLimitGaps(s *config.Site, f *config.Feed, cal *Calendar, gaps *limitGaps) {
 	if !HasLampLimit(f) {
 		return
 	}
-	if !known {
-		gaps = lampLimitGaps(f, cal)
+	if gaps != nil {
+		cal.LampLimitGaps = gaps.gaps
+	} else {
+		cal.LampLimitGaps = lampLimitGaps(f, cal)
 	}
-	cal.LampLimitGaps = gaps
 	for _, spec := range f.Kinds {
 		var add []string
 		for _, g := range cal.LampLimitGaps {

@@ -74,10 +74,14 @@ type planAnchor struct {
 // feedEntries computes the entries of a feed's kinds and plans on the local
 // dates first..last, sorted by Start then UID, finding the Sun's crossings
 // for both in one pass.
-func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed, first, last time.Time) (_ []Entry, _ []byte, gaps limitGaps, _ error) {
+//
+// With a lighting limit that its kinds' entries alone can be checked
+// against (ownLimitGaps), it returns too the limits that do nothing on
+// some dates, found as the entries are written; nil otherwise.
+func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed, first, last time.Time) ([]Entry, []byte, *limitGaps, error) {
 	col := &collector{ctx: ctx, sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
 	if HasLampLimit(f) && ownLimitGaps(f) {
-		gaps.known, col.gaps = true, &gaps
+		col.gaps = &limitGaps{}
 	}
 	// the collector's events are scratch: entries copies each into an
 	// entry, the plans' times copy those they keep (kindTimes), and
@@ -93,36 +97,35 @@ func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed,
 	if len(f.Plans) == 0 {
 		es, text, err := sky.entries(col, s, f.ID, f.Kinds, 0, true)
 		if err != nil {
-			return nil, nil, gaps, err
+			return nil, nil, nil, err
 		}
-		return sortEntries(es), text, gaps, nil
+		return sortEntries(es), text, col.gaps, nil
 	}
 	parsed, kinds, err := parsePlans(f.Plans)
 	if err != nil {
-		return nil, nil, gaps, err
+		return nil, nil, nil, err
 	}
 	pd, err := sky.allPlanDates(col, parsed)
 	if err != nil {
-		return nil, nil, gaps, err
+		return nil, nil, nil, err
 	}
 	// the kinds' crossings in one pass; the plans take theirs from it, or
 	// find them on their own dates only (planEntries), and append their
 	// entries to the kinds' (room made for them)
 	es, text, err := sky.entries(col, s, f.ID, f.Kinds, pd.total, true)
 	if err != nil {
-		return nil, nil, gaps, err
+		return nil, nil, nil, err
 	}
 	if es, text, err = sky.planEntries(col, s, f.ID, parsed, kinds, pd, es, text); err != nil {
-		return nil, nil, gaps, err
+		return nil, nil, nil, err
 	}
-	return sortEntries(es), text, gaps, nil
+	return sortEntries(es), text, col.gaps, nil
 }
 
 // limitGaps are the lighting limits of a feed that do nothing on some of
-// its dates, when known (see collector.gaps).
+// its dates (see collector.gaps).
 type limitGaps struct {
-	gaps  []LampLimitGap
-	known bool
+	gaps []LampLimitGap
 }
 
 // PlanEntries computes the entries of a feed's plans on the local dates

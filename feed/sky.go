@@ -706,24 +706,19 @@ func (c *collector) add(k config.Kind) error {
 	if err := c.compute(k); err != nil {
 		return err
 	}
-	if everyDate[k.Name] && !crossingKinds[k.Name] {
+	if noteSilentKinds[k.Name] {
 		c.noteSilent(k, n0, m0)
 	}
 	return nil
 }
 
-// crossingKinds are the daily kinds of collector.crossings, which notes
-// the dates without an event itself.
-var crossingKinds = map[string]bool{
-	"sunrise": true, "sunset": true, "civil-dawn": true, "civil-dusk": true, "nautical-dawn": true,
-	"nautical-dusk": true, "astronomical-dawn": true, "astronomical-dusk": true, "sun-altitude": true,
-}
-
-// everyDate are the kinds with an event or a note on every local date.
-var everyDate = map[string]bool{
-	"sunrise": true, "sunset": true, "solar-noon": true, "civil-dawn": true, "civil-dusk": true,
-	"nautical-dawn": true, "nautical-dusk": true, "astronomical-dawn": true, "astronomical-dusk": true,
-	"golden-hour": true, "blue-hour": true, "sun-altitude": true, config.KindSunBand: true,
+// noteSilentKinds are the kinds with an event or a note on every local
+// date whose dates without either add notes (noteSilent). The other kinds
+// with one on every date are collector.crossings's (sunrise, sunset, the
+// twilights' dawns and dusks, sun-altitude), which notes those dates
+// itself.
+var noteSilentKinds = map[string]bool{
+	"solar-noon": true, "golden-hour": true, "blue-hour": true, config.KindSunBand: true,
 	"moonrise": true, "moonset": true, "moon-transit": true, "dark-window": true,
 }
 

@@ -147,9 +147,19 @@ func zone(t *testing.T, name string) config.Zone {
 }
 
 func TestDurationWords(t *testing.T) {
-	for d, want := range map[time.Duration]string{48 * time.Minute: "48 min", 9*time.Hour + 5*time.Minute: "9 h 05 min", 0: "0 min"} {
+	for d, want := range map[time.Duration]string{48 * time.Minute: "48 min", 9*time.Hour + 5*time.Minute: "9 h 05 min", 0: "0 min",
+		19 * time.Second: "under 1 min", 29*time.Second + 999*time.Millisecond: "under 1 min", 30 * time.Second: "1 min"} {
 		if got := hm(d); got != want {
 			t.Errorf("hm(%v) = %q, want %q", d, got, want)
+		}
+	}
+	// a span (a dark window, a golden hour) of a few seconds is not "0 min";
+	// near a day and beyond, the days are counted as before
+	for d, want := range map[time.Duration]string{19 * time.Second: "under 1 min", 2*time.Hour + 16*time.Minute: "2 h 16 min",
+		23*time.Hour + 59*time.Minute + 29*time.Second: "23 h 59 min", 23*time.Hour + 59*time.Minute + 30*time.Second: "1 day 0 min",
+		83*24*time.Hour + 23*time.Hour + 9*time.Minute: "83 days 23 h 09 min"} {
+		if got := SpanLength(d); got != want {
+			t.Errorf("SpanLength(%v) = %q, want %q", d, got, want)
 		}
 	}
 	for d, want := range map[time.Duration]string{

@@ -246,13 +246,17 @@ func appendDuration(b []byte, d, unit time.Duration, trim bool) []byte {
 	return b
 }
 
-// hm writes a measured duration to the minute: "9 h 05 min", "48 min".
-func hm(d time.Duration) string { return Length(d, time.Minute) }
+// hm writes a measured duration to the minute: "9 h 05 min", "48 min";
+// one that lasts but rounds to no minute is "under 1 min", never "0 min".
+func hm(d time.Duration) string { return string(appendHM(nil, d)) }
 
 // appendHM appends hm(d) to b.
 func appendHM(b []byte, d time.Duration) []byte {
 	if d < 0 {
 		return appendDuration(b, d, time.Minute, false)
+	}
+	if d > 0 && d < 30*time.Second { // a dark window of 19 s is not "0 min"
+		return append(b, "under 1 min"...)
 	}
 	// whole minutes, half a minute up (d.Round for d ≥ 0)
 	mins := int64(d / time.Minute)
@@ -282,9 +286,10 @@ func SpanLength(d time.Duration) string { return string(appendSpanLength(nil, d)
 
 // appendSpanLength appends SpanLength(d) to b.
 func appendSpanLength(b []byte, d time.Duration) []byte {
-	if d = d.Round(time.Minute); d < 24*time.Hour {
+	if d < 24*time.Hour-30*time.Second { // under a day as rounded; appendHM rounds
 		return appendHM(b, d)
 	}
+	d = d.Round(time.Minute)
 	days := int64(d / (24 * time.Hour))
 	b = strconv.AppendInt(b, days, 10)
 	if days == 1 {

@@ -266,11 +266,8 @@ func newEphemeris(from, to time.Time, useTable bool) (*Ephemeris, error) {
 		return nil, fmt.Errorf("astro: ephemeris end %s is before its start %s", to.UTC().Format(time.RFC3339), from.UTC().Format(time.RFC3339))
 	}
 	qa, qb := from.Add(-ephemerisMargin), to.Add(ephemerisMargin)
-	// samples at 0h UTC, from 4 days before the start to 4 days after the end
-	start := math.Floor(unixSeconds(from)/secondsPerDay)*secondsPerDay - 4*secondsPerDay
-	n := int(math.Ceil((unixSeconds(to)-start)/secondsPerDay)) + 5
-	tr := allocTrack(start, secondsPerDay, n)
-	tr.sd, tr.cd = make([]float64, n), make([]float64, n) // filled block by block (trigRange)
+	tr := allocSunTrack(from, to)
+	start, n := tr.start, len(tr.g)
 	// samples k0..k1−1 from the table, the others computed (a run before
 	// it, a run after it)
 	k0, k1 := n, n
@@ -288,6 +285,18 @@ func newEphemeris(from, to time.Time, useTable bool) (*Ephemeris, error) {
 	tr.finish()
 	tr.carry = true
 	return &Ephemeris{coverage: newCoverage(qa, qb), sun: tr}, nil
+}
+
+// allocSunTrack returns the Sun's track for the span from..to, to be
+// filled: samples at 0h UTC from 4 days before the start to 4 days after
+// the end, with the sine and cosine of the declination (filled block by
+// block, trigRange).
+func allocSunTrack(from, to time.Time) *track {
+	start := math.Floor(unixSeconds(from)/secondsPerDay)*secondsPerDay - 4*secondsPerDay
+	n := int(math.Ceil((unixSeconds(to)-start)/secondsPerDay)) + 5
+	tr := allocTrack(start, secondsPerDay, n)
+	tr.sd, tr.cd = make([]float64, n), make([]float64, n)
+	return tr
 }
 
 // sunSamples computes the Sun's samples k0..k1−1 at 0h UTC of the days

@@ -156,10 +156,8 @@ func TestSunTableRange(t *testing.T) {
 	}
 	for _, c := range cases {
 		from, to := utc(c.from), utc(c.to)
-		start := math.Floor(unixSeconds(from)/secondsPerDay)*secondsPerDay - 4*secondsPerDay
-		n := int(math.Ceil((unixSeconds(to)-start)/secondsPerDay)) + 5
-		tr := allocTrack(start, secondsPerDay, n)
-		tr.sd, tr.cd = make([]float64, n), make([]float64, n)
+		tr := allocSunTrack(from, to)
+		n := len(tr.g)
 		k0, k1 := readSunTable(tr)
 		wantK0, wantK1 := c.before, n-c.after
 		if c.none {

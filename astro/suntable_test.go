@@ -4,8 +4,10 @@ import (
 	"bytes"
 	"encoding/binary"
 	"flag"
+	"fmt"
 	"math"
 	"os"
+	"strings"
 	"testing"
 	"time"
 )
@@ -250,5 +252,36 @@ func TestSunTableEvents(t *testing.T) {
 	t.Logf("table vs computed from the span's start: hour angle %.1e rad, declination %.1e rad, distance %.1e (relative); events %v", maxH, maxD, maxR, maxDt)
 	if maxH > 2e-10 || maxD > 2e-10 || maxR > 2e-10 {
 		t.Errorf("samples differ: hour angle %.1e rad, declination %.1e rad, distance %.1e (want ≤ 2e-10, 2e-10, 2e-10)", maxH, maxD, maxR)
+	}
+}
+
+// TestSunTableDocs checks what README.md, DEVELOPERS.md and
+// docs/accuracy.md say of the table against the table itself: its size,
+// its number of days, the dates it holds and the span of dates it serves
+// (TestSunTableRange), and the command that writes it again.
+func TestSunTableDocs(t *testing.T) {
+	tab := loadSunTable()
+	days := fmt.Sprintf("%d,%03d days", tab.n/1000, tab.n%1000)
+	first, last := sunTableFirstDay.Format(time.DateOnly), sunTableLastDay.Format(time.DateOnly)
+	const regen = "`go test ./astro -run TestSunTable -update`"
+	for file, claims := range map[string][]string{
+		"../README.md": {
+			fmt.Sprintf("(%.2f MB)", float64(len(sunTableData))/1e6),
+			days,
+			"within 1990-01-01 .. 2100-12-31",
+		},
+		"../DEVELOPERS.md":    {first + ".." + last, regen},
+		"../docs/accuracy.md": {"days " + first + " to " + last, fmt.Sprintf("%s × %d bytes", days, sunTableRecord), regen},
+	} {
+		b, err := os.ReadFile(file)
+		if err != nil {
+			t.Fatal(err)
+		}
+		text := strings.Join(strings.Fields(string(b)), " ")
+		for _, c := range claims {
+			if !strings.Contains(text, c) {
+				t.Errorf("%s does not say %q", file, c)
+			}
+		}
 	}
 }

@@ -717,15 +717,13 @@ func (tr *track) estimateFrom(st *site, sinH0 float64, e0, e1 *extremum, rising 
 
 // solve finds the root of sinAltitude − sinH0 in the bracket [a, b] (fa, fb
 // of opposite signs) from the estimate g, where it is fg, and the slope
-// there (0 if unknown): secant steps kept inside the shrinking bracket,
-// bisection when they fail. It stops when a step is below 0.05 s: the
-// secant method's next error is then below 0.1 ms.
+// there (0 if unknown), when newtonDone's first step from g has not ended
+// the search: secant steps kept inside the shrinking bracket, bisection
+// when they fail. It stops when a step is below 0.05 s: the secant method's
+// next error is then below 0.1 ms.
 func (tr *track) solve(st *site, sinH0, a, fa, b, fb, g, fg, slope float64) float64 {
 	f := func(t float64) float64 { return tr.sinAltitude(st, t) - sinH0 }
 	x0, f0 := g, fg
-	if x1, done := newtonDone(a, fa, b, x0, f0, slope); done {
-		return x1
-	}
 	if (f0 < 0) == (fa < 0) {
 		a, fa = x0, f0
 	} else {
@@ -769,7 +767,7 @@ func (tr *track) solve(st *site, sinH0, a, fa, b, fb, g, fg, slope float64) floa
 	return 0.5 * (a + b)
 }
 
-// newtonDone is solve's first step from x0, where the function is f0, in
+// newtonDone is the search's first step from x0, where the function is f0, in
 // the bracket [a, b] (fa at a) with the slope at x0 (0 if unknown): the
 // root x0 when f0 is 0, else x1 = x0 − f0/slope, and whether that ends the
 // search: x1 within the bracket narrowed by x0, less than 0.05 s from x0.

@@ -90,6 +90,21 @@ func itoa(n int) string {
 	return itoa(n/10) + string(rune('0'+n%10))
 }
 
+// gregorianMonthDays returns the number of days of month m (1..12) of year
+// y in the Gregorian calendar.
+func gregorianMonthDays(y, m int) int {
+	switch m {
+	case 2:
+		if y%4 == 0 && (y%100 != 0 || y%400 == 0) {
+			return 29
+		}
+		return 28
+	case 4, 6, 9, 11:
+		return 30
+	}
+	return 31
+}
+
 // Leap seconds: TAI − UTC steps since 1972 (IERS Bulletin C), as the Unix
 // second at which each new value starts.
 var leapSeconds = func() []float64 {
@@ -108,11 +123,19 @@ var leapSeconds = func() []float64 {
 
 var (
 	utcLeapStart = float64(time.Date(1972, 1, 1, 0, 0, 0, 0, time.UTC).Unix())
-	// month starts of the observed ΔT table, Unix seconds.
+	// month starts of the observed ΔT table, Unix seconds: the first from
+	// time.Date, each next one a month's days later (a time.Date for each
+	// of the 600-odd months was half of the package's start-up).
 	deltaTMonthStart = func() []float64 {
 		out := make([]float64, len(deltaTMonthly))
+		s := time.Date(deltaTFirstYear, deltaTFirstMonth, 1, 0, 0, 0, 0, time.UTC).Unix()
+		y, m := deltaTFirstYear, deltaTFirstMonth
 		for i := range out {
-			out[i] = float64(time.Date(deltaTFirstYear, time.Month(deltaTFirstMonth+i), 1, 0, 0, 0, 0, time.UTC).Unix())
+			out[i] = float64(s)
+			s += int64(gregorianMonthDays(y, m)) * 86400
+			if m++; m > 12 {
+				y, m = y+1, 1
+			}
 		}
 		return out
 	}()

@@ -393,3 +393,23 @@ func TestGrazingSunrise(t *testing.T) {
 		t.Errorf("peak %.4f°: clears the threshold by %.4f°, want a graze under 0.01°", peak, clear)
 	}
 }
+
+// TestDeltaTMonthStarts checks the ΔT table's month starts, found by adding
+// up the months' days, against the Go standard library's Gregorian calendar
+// (time.Date), and the month lengths over 1800..2200 (1900 and 2100 are not
+// leap years, 2000 is).
+func TestDeltaTMonthStarts(t *testing.T) {
+	for i, s := range deltaTMonthStart {
+		want := time.Date(deltaTFirstYear, time.Month(deltaTFirstMonth+i), 1, 0, 0, 0, 0, time.UTC).Unix()
+		if int64(s) != want || float64(want) != s {
+			t.Fatalf("month %d of the table: %v, want %d", i, s, want)
+		}
+	}
+	for y := 1800; y <= 2200; y++ {
+		for m := 1; m <= 12; m++ {
+			if got, want := gregorianMonthDays(y, m), time.Date(y, time.Month(m)+1, 0, 0, 0, 0, 0, time.UTC).Day(); got != want {
+				t.Fatalf("%d-%02d: %d days, want %d", y, m, got, want)
+			}
+		}
+	}
+}

@@ -75,6 +75,9 @@ func TestDescLineFromMemo(t *testing.T) {
 	w.descs[0].line[0] = 'd' // the memo's mark
 	next := "Civil dawn at 06:13:02 CET.\nComputed for planning; local rules decide legal times such as hunting hours, lighting-up times and aviation night."
 	got := string(w.descLine(nil, "Civil dawn", next))
+	// RFC 5545 §3.3.11: ";" and "," escaped with a backslash, a newline
+	// written "\n"; §3.1: lines of at most 75 octets, each continuation
+	// line starting with a space
 	want := "dESCRIPTION:Civil dawn at 06:13:02 CET.\\nComputed for planning\\; local\r\n" +
 		"  rules decide legal times such as hunting hours\\, lighting-up times and\r\n  aviation night.\r\n"
 	if got != want {

@@ -573,12 +573,7 @@ func shownAt(t time.Time, z *zoneCache) shownClock {
 	}
 	// ToMinute: to the millisecond, then to the minute, each half up; the
 	// zero time is a whole number of minutes before 1970
-	var um int64
-	if x := sec*1000 + (ns+500_000)/1_000_000 + 30_000; x >= 0 {
-		um = x / 60_000 * 60
-	} else {
-		um = floorDiv(x, 60_000) * 60
-	}
+	um := floorDiv(sec*1000+(ns+500_000)/1_000_000+30_000, 60_000) * 60
 	zone, off := z.at(us)
 	s := daySeconds(us + off)
 	// the minute's clock: us's moved by the whole minutes' rounding (at

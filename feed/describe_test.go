@@ -513,3 +513,27 @@ func TestSolarNoonOnTheHorizon(t *testing.T) {
 		}
 	}
 }
+
+// A photoperiod date whose day length rounds to the threshold itself says
+// it to the second, so that "falling below 12 h" is not followed by "up
+// for 12 h 00 min". Santiago, 33.45° S 70.67° W (PyEphem 4.1.4, upper
+// limb, 34′ refraction, sea level): sunrise to sunset 43,312.3 s (12 h 01
+// min 52 s) on 23 March 2027 and 43,187.5 s (11 h 59 min 47 s) on 24
+// March, the date the day length falls below 12 h.
+func TestPhotoperiodLengthNotTheThresholdWhenBelow(t *testing.T) {
+	s := site(t, "santiago", -33.45, -70.67, "America/Santiago")
+	sk := sky(t, "2027-03-20", "2027-03-28")
+	cal, err := sk.Calendar(context.Background(), s, &config.Feed{ID: "f", Kinds: []config.KindSpec{{Kind: mustKinds(t, "photoperiod:12h")[0]}}},
+		date("2027-03-20"), date("2027-03-28"), Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	const want = "Day length falling below 12 h today: the Sun is up for 11 h 59 min 47 s (−2 min 05 s from the day before), sunrise to sunset."
+	var got []string
+	for _, e := range cal.Entries {
+		got = append(got, e.Start.Format(time.DateOnly)+": "+e.Description)
+	}
+	if len(got) != 1 || got[0] != "2027-03-24: "+want {
+		t.Errorf("entries %q, want one on 2027-03-24: %q", got, want)
+	}
+}

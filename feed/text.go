@@ -714,7 +714,13 @@ func describe(s *siteInfo, e Event) (string, string) {
 		} else {
 			title = fmt.Sprintf("%s falling below %s", what, amount(e.Kind.DayLength))
 		}
-		fmt.Fprintf(&b, "%s today: "+how+".", title, hm(e.DayLength), Change(e.DayChange))
+		length := hm(e.DayLength)
+		if shown := e.DayLength.Round(time.Minute); (e.Direction == astro.Rising) != (shown >= e.Kind.DayLength) {
+			// to the minute it would read as the threshold itself ("falling
+			// below 12 h: up for 12 h 00 min"): to the second instead
+			length = Length(e.DayLength, time.Second)
+		}
+		fmt.Fprintf(&b, "%s today: "+how+".", title, length, Change(e.DayChange))
 	case "solar-eclipse", "lunar-eclipse":
 		return describeEclipse(s, e)
 	default:

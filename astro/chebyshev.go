@@ -44,6 +44,7 @@ func newEarthSeries(jde0, jde1 float64) *earthSeries {
 	s := &earthSeries{start: jde0, blocks: make([]chebBlock, n)}
 	vals := slowNodes(jde0, n)
 	var f [3][sunChebNodes]float64
+	chebCos := chebCosines()
 	for i := range s.blocks {
 		blk := &s.blocks[i]
 		blk.a = jde0 + float64(i)*sunChebDays
@@ -68,27 +69,30 @@ func newEarthSeries(jde0, jde1 float64) *earthSeries {
 	return s
 }
 
-// chebCos[k][j] is cos(πk(j + ½)/sunChebNodes), the Chebyshev polynomial Tₖ
-// at node j.
-var chebCos = func() (c [sunChebNodes][sunChebNodes]float64) {
+// chebCosines returns the table chebCos[k][j] = cos(πk(j + ½)/sunChebNodes),
+// the Chebyshev polynomial Tₖ at node j, made on first use: only a span
+// outside the shipped Sun table fits blocks, and the 400 cosines were a
+// third of the package's initialisation at every start.
+var chebCosines = sync.OnceValue(func() *[sunChebNodes][sunChebNodes]float64 {
+	c := new([sunChebNodes][sunChebNodes]float64)
 	for k := range sunChebNodes {
 		for j := range sunChebNodes {
 			c[k][j] = math.Cos(math.Pi * float64(k) * (float64(j) + 0.5) / sunChebNodes)
 		}
 	}
 	return c
-}()
+})
 
 // slowNodes returns the slow terms' L (not reduced), B and R at the nodes
 // of n consecutive blocks from jde0 (value [v][i·sunChebNodes + j]: node
-// j, at mid + half·T₁(node j) = mid + half·chebCos[1][j], of block i).
+// j, at mid + half·T₁(node j) = mid + half·chebCosines()[1][j], of block i).
 // Node j of successive blocks lies sunChebDays apart, so each term's cosine
 // is carried from one block to the next by a rotation (as daily does for
 // the fast terms), computed afresh every slowRestart blocks: the values
 // agree with the series summed (evalVSOP of the slow terms) to about 1e-15 of
 // each term's amplitude.
 func slowNodes(jde0 float64, n int) (vals [3][]float64) {
-	xs := &chebCos[1]
+	xs := &chebCosines()[1]
 	m := n * sunChebNodes
 	tau := make([]float64, m)
 	for i := range n {

@@ -373,7 +373,7 @@ func (kt *kindTimes) day(d time.Time) (dayCrossings, error) {
 	xs := kt.sun.xs
 	startN, endN := start.UnixNano(), end.UnixNano()
 	i := kt.next
-	if i > len(xs) || i > 0 && xs[i-1].Time.UnixNano() >= startN {
+	if i > 0 && xs[i-1].Time.UnixNano() >= startN {
 		i = sort.Search(len(xs), func(i int) bool { return xs[i].Time.UnixNano() >= startN })
 	}
 	for i < len(xs) && xs[i].Time.UnixNano() < startN {

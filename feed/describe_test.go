@@ -156,7 +156,8 @@ func TestDurationWords(t *testing.T) {
 	// a span (a dark window, a golden hour) of a few seconds is not "0 min";
 	// near a day and beyond, the days are counted as before
 	for d, want := range map[time.Duration]string{19 * time.Second: "under 1 min", 2*time.Hour + 16*time.Minute: "2 h 16 min",
-		23*time.Hour + 59*time.Minute + 29*time.Second: "23 h 59 min", 23*time.Hour + 59*time.Minute + 30*time.Second: "1 day 0 min",
+		23*time.Hour + 59*time.Minute + 29*time.Second: "23 h 59 min", 23*time.Hour + 59*time.Minute + 30*time.Second: "1 day",
+		72 * time.Hour: "3 days", 48*time.Hour + 30*time.Minute: "2 days 30 min",
 		83*24*time.Hour + 23*time.Hour + 9*time.Minute: "83 days 23 h 09 min"} {
 		if got := SpanLength(d); got != want {
 			t.Errorf("SpanLength(%v) = %q, want %q", d, got, want)

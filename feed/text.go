@@ -281,7 +281,8 @@ func appendHM(b []byte, d time.Duration) []byte {
 
 // SpanLength writes the length of a band's span to the minute as hm does,
 // "2 h 16 min", and a span of days near a pole (AroundTheClock) in days:
-// "83 days 23 h 09 min", not "2015 h 09 min".
+// "83 days 23 h 09 min", not "2015 h 09 min"; whole days as rounded are
+// "1 day", "3 days", not "1 day 0 min".
 func SpanLength(d time.Duration) string { return string(appendSpanLength(nil, d)) }
 
 // appendSpanLength appends SpanLength(d) to b.
@@ -293,11 +294,14 @@ func appendSpanLength(b []byte, d time.Duration) []byte {
 	days := int64(d / (24 * time.Hour))
 	b = strconv.AppendInt(b, days, 10)
 	if days == 1 {
-		b = append(b, " day "...)
+		b = append(b, " day"...)
 	} else {
-		b = append(b, " days "...)
+		b = append(b, " days"...)
 	}
-	return appendDuration(b, d%(24*time.Hour), time.Minute, false)
+	if d%(24*time.Hour) == 0 {
+		return b
+	}
+	return appendDuration(append(b, ' '), d%(24*time.Hour), time.Minute, false)
 }
 
 // Change formats a signed day-length change as "+1 min 30 s", "−2 min 05 s"

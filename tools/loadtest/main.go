@@ -45,6 +45,7 @@ import (
 	"os"
 	"os/exec"
 	"os/signal"
+	"path/filepath"
 	"runtime"
 	"runtime/metrics"
 	"slices"
@@ -133,15 +134,21 @@ func run() error {
 		}
 	}
 
-	// The samples file is created before any request, so that a path that
-	// cannot be written is said at once, not after the runs.
+	// The samples file is made before any request, so that a path that
+	// cannot be written is said at once, not after the runs: as a temporary
+	// file beside it, renamed to it once every run is done, so that a run
+	// that fails leaves an earlier samples file as it was and no part of one.
 	var samples *os.File
 	if c.samples != "" {
-		f, err := os.Create(c.samples)
+		f, err := os.CreateTemp(filepath.Dir(c.samples), "."+filepath.Base(c.samples)+".*")
 		if err != nil {
 			return badInput{fmt.Errorf("-samples %s: %w", c.samples, err)}
 		}
-		defer f.Close()
+		f.Chmod(0o644) // as a file of its own (CreateTemp's is the owner's alone)
+		defer func() {
+			f.Close()
+			os.Remove(f.Name()) // after the rename: nothing
+		}()
 		samples = f
 	}
 
@@ -178,6 +185,9 @@ func run() error {
 	}
 	if samples != nil {
 		if err := writeSamplesFile(samples, runs); err != nil {
+			return fmt.Errorf("-samples %s: %w", c.samples, err)
+		}
+		if err := os.Rename(samples.Name(), c.samples); err != nil {
 			return fmt.Errorf("-samples %s: %w", c.samples, err)
 		}
 	}

@@ -253,3 +253,30 @@ func TestSamplesFileCheckedFirst(t *testing.T) {
 		t.Errorf("%d requests sent before the error, want none", n)
 	}
 }
+
+// A run that fails after the -samples file was made leaves a samples file
+// already there as it was, and no part of a new one beside it.
+func TestSamplesFileKeptOnFailure(t *testing.T) {
+	var requests atomic.Int64
+	srv := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) { requests.Add(1) }))
+	defer srv.Close()
+	dir := t.TempDir()
+	path := filepath.Join(dir, "samples.tsv")
+	if err := os.WriteFile(path, []byte("an earlier run\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	// lat= in the ad-hoc URL is refused once the samples file is made
+	cmd := exec.Command(os.Args[0], "-test.run=^TestSamplesFileCheckedFirst$")
+	cmd.Env = append(os.Environ(), "LOADTEST_TEST_ARGS=-adhoc "+srv.URL+"/at.ics?lat=1&lon=1 -adhoc-n 20 -samples "+path)
+	out, err := cmd.CombinedOutput()
+	var exit *exec.ExitError
+	if !errors.As(err, &exit) || exit.ExitCode() != 2 || !strings.Contains(string(out), "-adhoc ") {
+		t.Errorf("exit %v, output\n%s\nwant exit 2 naming -adhoc", err, out)
+	}
+	if b, err := os.ReadFile(path); err != nil || string(b) != "an earlier run\n" {
+		t.Errorf("the earlier samples file after a failed run: %q, %v; want it as it was", b, err)
+	}
+	if names, _ := os.ReadDir(dir); len(names) != 1 {
+		t.Errorf("files beside it after a failed run: %v, want the samples file alone", names)
+	}
+}

@@ -163,11 +163,24 @@ type cachedSite struct {
 	st *site
 }
 
-// site returns o's site, prepared or kept; o must be valid.
-func (c *siteCache) site(o Observer) *site {
+// kept returns o's site if it is the one kept, else nil.
+func (c *siteCache) kept(o Observer) *site {
 	if p := c.last.Load(); p != nil && p.o == o {
 		return p.st
 	}
+	return nil
+}
+
+// site returns o's site, prepared or kept; o must be valid.
+func (c *siteCache) site(o Observer) *site {
+	if st := c.kept(o); st != nil {
+		return st
+	}
+	return c.keep(o)
+}
+
+// keep prepares o's site and keeps it; o must be valid.
+func (c *siteCache) keep(o Observer) *site {
 	st := newSite(o)
 	c.last.Store(&cachedSite{o, st})
 	return st
@@ -178,16 +191,16 @@ func (c *siteCache) site(o Observer) *site {
 // so that a caller asking for one instant after another (an azimuth per
 // sunrise) has only the span checked.
 func (e *Ephemeris) query(o Observer, from, to time.Time) (*site, error) {
-	if p := e.sites.last.Load(); p != nil && p.o == o {
+	if st := e.sites.kept(o); st != nil {
 		if err := e.checkSpan(from, to); err != nil {
 			return nil, err
 		}
-		return p.st, nil
+		return st, nil
 	}
 	if err := e.check(o, from, to); err != nil {
 		return nil, err
 	}
-	return e.sites.site(o), nil
+	return e.sites.keep(o), nil
 }
 
 // coverage is the span an ephemeris (the Sun's or the Moon's) answers

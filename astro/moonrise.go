@@ -63,7 +63,6 @@ func NewMoonEphemeris(from, to time.Time) (*MoonEphemeris, error) {
 	if err != nil {
 		return nil, err
 	}
-	qa, qb := sun.Coverage()
 	start := math.Floor(unixSeconds(from)/secondsPerDay)*secondsPerDay - 4*secondsPerDay
 	n := int(math.Ceil((unixSeconds(to)-start)/moonTrackStep)) + int(4*secondsPerDay/moonTrackStep) + 1
 	// The series for all samples at once (elpUniform), at t − light time.
@@ -78,7 +77,7 @@ func NewMoonEphemeris(from, to time.Time) (*MoonEphemeris, error) {
 		s := moonApparentFrom(e.JDE, lon[k], lat[k], dist[k])
 		return s.ra, s.dec, s.dist / earthRadiusKm, s.eqEq
 	})
-	return &MoonEphemeris{coverage: newCoverage(qa, qb), moon: tr, sun: sun}, nil
+	return &MoonEphemeris{coverage: sun.coverage, moon: tr, sun: sun}, nil
 }
 
 // Sun returns the Sun's ephemeris over the same span, built with the Moon's.

@@ -7,6 +7,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"log/slog"
 	"net/http"
 	"net/http/httptest"
 	"regexp"
@@ -693,13 +694,16 @@ func TestAdhocSinkPieces(t *testing.T) {
 }
 
 // WarmAdhoc builds the default query's feed at a place in UTC, as a request
-// would, once; the feed is then served from the cache. A builder that
-// fails or panics does not stop the server.
+// would, once, and logs that it did ("ad-hoc feeds warmed up", as
+// docs/serving.md says); the feed is then served from the cache. A builder
+// that fails or panics does not stop the server: the failure is logged.
 func TestWarmAdhoc(t *testing.T) {
 	var calls atomic.Int32
 	var got AdhocQuery
+	var logged bytes.Buffer
 	warmServer := func(fn AdhocFunc) *Server {
-		s, _ := newTestServer(t, Options{Adhoc: fn, AdhocDefaultKinds: []string{"sunrise", "sunset"}})
+		s, _ := newTestServer(t, Options{Adhoc: fn, AdhocDefaultKinds: []string{"sunrise", "sunset"},
+			Logger: slog.New(slog.NewTextHandler(&logged, nil))})
 		s.now = func() time.Time { return today }
 		return s
 	}
@@ -708,9 +712,13 @@ func TestWarmAdhoc(t *testing.T) {
 		got = q
 		return adhocBytes(ctx, q)
 	}))
+	logged.Reset()
 	s.WarmAdhoc(t.Context())
 	if n := calls.Load(); n != 1 {
 		t.Fatalf("%d builds, want 1", n)
+	}
+	if out := logged.String(); !strings.Contains(out, `msg="ad-hoc feeds warmed up" query="`+warmQuery+`" duration=`) {
+		t.Errorf("the warm-up logged %q, want it said done, with its query and duration", out)
 	}
 	if got.Latitude != 0 || got.Longitude != 0 || got.Location.String() != "UTC" || got.Days != DefaultAdhocDefaultDays ||
 		!got.Start.Equal(time.Date(2026, 12, 2, 0, 0, 0, 0, time.UTC)) || strings.Join(got.Kinds, ",") != "sunrise,sunset" {
@@ -737,7 +745,13 @@ func TestWarmAdhoc(t *testing.T) {
 		func(context.Context, AdhocQuery, io.Writer) error { return errors.New("broken") },
 		func(context.Context, AdhocQuery, io.Writer) error { panic("broken") },
 	} {
-		warmServer(fn).WarmAdhoc(t.Context()) // logs, returns
+		s := warmServer(fn)
+		logged.Reset()
+		s.WarmAdhoc(t.Context()) // logs, returns
+		if out := logged.String(); !strings.Contains(out, `level=WARN msg="ad-hoc warm-up failed" query="`+warmQuery+`" err=`) ||
+			strings.Contains(out, "warmed up") {
+			t.Errorf("a warm-up that failed logged %q, want the failure alone", out)
+		}
 	}
 	s, _ = newTestServer(t, Options{}) // no ad-hoc feeds: nothing to do
 	s.WarmAdhoc(t.Context())

@@ -82,7 +82,9 @@ func (c *dayCache) dateText(days int64) *[10]byte {
 	return &c.text
 }
 
-// date makes the day numbered days from 1970-01-01 the cached one.
+// date makes the day numbered days from 1970-01-01 the cached one. It is
+// a function of its own so that dateText, on the path of every event,
+// stays small enough to be inlined.
 func (c *dayCache) date(days int64) {
 	y, m, d := civilFromDays(days)
 	appendDate(c.text[:0], y, m, d)

@@ -282,18 +282,17 @@ func TestCoverageEnds(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	for name, e := range map[string]interface {
-		Coverage() (time.Time, time.Time)
-	}{"Sun": sun, "Moon": moon} {
+	for _, b := range []struct {
+		name     string
+		coverage func() (time.Time, time.Time)
+		az       func(Observer, time.Time) (float64, error)
+	}{{"Sun", sun.Coverage, sun.SunAzimuth}, {"Moon", moon.Coverage, moon.MoonAzimuth}} {
+		name := b.name
 		azimuth := func(tm time.Time) error {
-			if name == "Sun" {
-				_, err := sun.SunAzimuth(o, tm)
-				return err
-			}
-			_, err := moon.MoonAzimuth(o, tm)
+			_, err := b.az(o, tm)
 			return err
 		}
-		lo, hi := e.Coverage()
+		lo, hi := b.coverage()
 		for _, tm := range []time.Time{lo, lo.Add(time.Nanosecond), lo.Add(400 * time.Millisecond), hi.Add(-400 * time.Millisecond), hi} {
 			if err := azimuth(tm); err != nil {
 				t.Errorf("%s at %v: %v", name, tm, err)

@@ -63,7 +63,7 @@ func NewMoonEphemeris(from, to time.Time) (*MoonEphemeris, error) {
 	if err != nil {
 		return nil, err
 	}
-	start := math.Floor(unixSeconds(from)/secondsPerDay)*secondsPerDay - 4*secondsPerDay
+	start := sun.sun.start // 0h UTC, 4 days before from (allocSunTrack)
 	n := int(math.Ceil((unixSeconds(to)-start)/moonTrackStep)) + int(4*secondsPerDay/moonTrackStep) + 1
 	// The series for all samples at once (elpUniform), at t − light time.
 	jde := make([]float64, n)

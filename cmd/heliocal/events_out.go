@@ -103,6 +103,9 @@ type jsonKind struct {
 	// part, made at its first use; nil for a kind that is not plain or
 	// whose name makes the text too long
 	tmpl [3]*jsonTemplate
+	// long[d]: the text in direction d does not fit a template (a kind
+	// name far over 40 bytes), so that it is not made again for each event
+	long [3]bool
 }
 
 // jsonTemplate is the text of one kind's event in one direction, without
@@ -139,6 +142,7 @@ func (k *jsonKind) template(d astro.Direction) *jsonTemplate {
 		b = append(b, "\n    }"...)
 	}
 	if len(b) > jsonTemplateSize {
+		k.long[dirIndex(d)] = true
 		return nil
 	}
 	t := &jsonTemplate{n: len(b), start: start, date: date}
@@ -245,7 +249,7 @@ func (j *jsonSink) ordered(evs []feed.Event, order, spec []int32) error {
 		// nearly every event of a long listing: its kind's text with the
 		// digits written in, the text made the first time
 		t := k.tmpl[dirIndex(e.Direction)]
-		if t == nil && k.plain {
+		if t == nil && k.plain && !k.long[dirIndex(e.Direction)] {
 			t = k.template(e.Direction)
 		}
 		if t != nil && e.End.IsZero() && e.Part == "" && !e.DirectSun &&

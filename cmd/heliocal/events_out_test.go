@@ -22,10 +22,11 @@ import (
 // The streamed JSON is byte for byte what encoding/json's indenting encoder
 // writes for the same document, over several chunks, with notes (a polar
 // site), spans named by their evening that start after midnight (dark
-// windows) and far-future uncertainties.
+// windows), far-future uncertainties and a plain kind whose name is too
+// long for its prepared text (sun-altitude:-1e-50 written out in full).
 func TestEventsJSONStreamedAsEncoder(t *testing.T) {
 	args := []string{"events", "--lat", "69.65", "--lon", "18.96", "--tz", "Europe/Oslo", "--from", "2098-06-01",
-		"--to", "2099-09-30", "--kinds", "sunrise,sunset,solar-noon,sun-altitude:-4,civil-dusk,golden-hour,dark-window,moon-phases,seasons,perihelion,photoperiod:20h,lighting:16h",
+		"--to", "2099-09-30", "--kinds", "sunrise,sunset,solar-noon,sun-altitude:-4,sun-altitude:-1e-50,civil-dusk,golden-hour,dark-window,moon-phases,seasons,perihelion,photoperiod:20h,lighting:16h",
 		"--max-illumination", "0.25", "--format", "json"}
 	code, out, errOut := runCLI(t, args...)
 	if code != 0 {
@@ -36,7 +37,7 @@ func TestEventsJSONStreamedAsEncoder(t *testing.T) {
 		t.Fatal(err)
 	}
 	from, to := time.Date(2098, 6, 1, 0, 0, 0, 0, time.UTC), time.Date(2099, 9, 30, 0, 0, 0, 0, time.UTC)
-	kinds, err := parseKinds("sunrise,sunset,solar-noon,sun-altitude:-4,civil-dusk,golden-hour,dark-window,moon-phases,seasons,perihelion,photoperiod:20h,lighting:16h")
+	kinds, err := parseKinds("sunrise,sunset,solar-noon,sun-altitude:-4,sun-altitude:-1e-50,civil-dusk,golden-hour,dark-window,moon-phases,seasons,perihelion,photoperiod:20h,lighting:16h")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -77,7 +78,8 @@ func TestEventsJSONStreamedAsEncoder(t *testing.T) {
 	if err := enc.Encode(doc); err != nil {
 		t.Fatal(err)
 	}
-	if chunks < 3 || len(doc.Notes) == 0 || !strings.Contains(out, `"uncertainty_s"`) || !strings.Contains(out, `"dark-window"`) || !strings.Contains(out, `"lamp_s"`) {
+	if chunks < 3 || len(doc.Notes) == 0 || !strings.Contains(out, `"uncertainty_s"`) || !strings.Contains(out, `"dark-window"`) || !strings.Contains(out, `"lamp_s"`) ||
+		!strings.Contains(out, `"sun-altitude:-0.00000000000000000000000000000000000000000000000001"`) {
 		t.Fatalf("the case does not exercise the writer: %d chunks, %d notes", chunks, len(doc.Notes))
 	}
 	if out != want.String() {

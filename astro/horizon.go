@@ -92,17 +92,17 @@ func leapCount(sec float64) float64 {
 // sidereal time.
 func newTrack(start, step float64, n int, sample func(e Epoch) (ra, dec, dist, eqEq float64)) *track {
 	tr := allocTrack(start, step, n)
-	es := make([]Epoch, n)
-	for k := range es {
-		es[k] = epochOf(start + float64(k)*step)
+	for k := range n {
+		e := epochOf(start + float64(k)*step)
+		ra, dec, dist, eqEq := sample(e)
+		tr.set(k, greenwichHourAngle(e, ra, eqEq), dec, dist)
 	}
-	tr.fill(0, es, func(_ int, e Epoch) (ra, dec, dist, eqEq float64) { return sample(e) })
 	tr.finish()
 	return tr
 }
 
 // allocTrack returns a track of n samples from start, step apart, to be
-// filled (fill, possibly by several goroutines over separate runs of
+// filled (set, possibly by several goroutines over separate runs of
 // samples) and then finished.
 func allocTrack(start, step float64, n int) *track {
 	tr := &track{start: start, step: step, g: make([]float64, n), dec: make([]float64, n), dist: make([]float64, n), kmax: n - 3}
@@ -114,15 +114,6 @@ func allocTrack(start, step float64, n int) *track {
 		}
 	}
 	return tr
-}
-
-// fill takes the samples k0, k0+1, … at the epochs es (those of
-// start + k·step): sample(k, es[k−k0]).
-func (tr *track) fill(k0 int, es []Epoch, sample func(k int, e Epoch) (ra, dec, dist, eqEq float64)) {
-	for i, e := range es {
-		ra, dec, dist, eqEq := sample(k0+i, e)
-		tr.set(k0+i, greenwichHourAngle(e, ra, eqEq), dec, dist)
-	}
 }
 
 // greenwichHourAngle returns the Greenwich hour angle (rad, not reduced) of

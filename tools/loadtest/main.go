@@ -494,17 +494,18 @@ func serverCounts(ctx context.Context, host string) (c serverCounters, ok bool) 
 	sc := bufio.NewScanner(resp.Body)
 	sc.Buffer(nil, 1<<20)
 	var hit, miss bool
+	counters := []struct {
+		prefix string
+		dst    *int
+		found  *bool
+	}{
+		{"go_gc_duration_seconds_count ", &c.gc, &ok},
+		{`heliocal_adhoc_cache_total{result="hit"} `, &c.hits, &hit},
+		{`heliocal_adhoc_cache_total{result="miss"} `, &c.misses, &miss},
+	}
 	for sc.Scan() {
 		line := sc.Text()
-		for _, m := range []struct {
-			prefix string
-			dst    *int
-			found  *bool
-		}{
-			{"go_gc_duration_seconds_count ", &c.gc, &ok},
-			{`heliocal_adhoc_cache_total{result="hit"} `, &c.hits, &hit},
-			{`heliocal_adhoc_cache_total{result="miss"} `, &c.misses, &miss},
-		} {
+		for _, m := range counters {
 			if v, found := strings.CutPrefix(line, m.prefix); found {
 				f, err := strconv.ParseFloat(strings.TrimSpace(v), 64)
 				*m.dst, *m.found = int(f), err == nil

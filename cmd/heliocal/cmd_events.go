@@ -445,8 +445,7 @@ func toJSONEvent(e feed.Event) jsonEvent {
 			j.Uncertainty = &s
 		}
 	}
-	switch e.Kind.Name {
-	case "photoperiod", "sunrise", "sunset", config.KindLighting, "daily-summary":
+	if carriesDayLength(e.Kind.Name) {
 		s := math.Round(e.DayLength.Seconds()*1000) / 1000
 		if e.DirectSun {
 			j.DirectSun = &s // time above the skyline, not sunrise to sunset

@@ -145,6 +145,17 @@ type jsonEntry struct {
 	Description string   `json:"description"`
 }
 
+// carriesDayLength says whether the events of the kind named name carry
+// the day length in their JSON, with --feed or without, a length of 0 too
+// (polar night).
+func carriesDayLength(name string) bool {
+	switch name {
+	case "photoperiod", "sunrise", "sunset", config.KindLighting, "daily-summary":
+		return true
+	}
+	return false
+}
+
 // roundTo rounds x to the given number of decimals, as the nearest
 // float64 to the decimal written (no 124.21000000000001 in the output).
 func roundTo(x float64, decimals int) *float64 {
@@ -198,8 +209,7 @@ func toJSONEntry(cal *feed.Calendar, e *feed.Entry) jsonEntry {
 	}
 	j.DayLength, j.DayChange, j.Lamp = seconds(f.DayLength), seconds(f.DayChange), seconds(f.Lamp)
 	if !f.Note { // the kinds whose events carry a day length carry it when it is 0 too, as without --feed
-		switch base, _, _ := strings.Cut(e.Kind, ":"); base {
-		case "sunrise", "sunset", "photoperiod", config.KindLighting, "daily-summary":
+		if base, _, _ := strings.Cut(e.Kind, ":"); carriesDayLength(base) {
 			j.DayLength = roundTo(f.DayLength.Seconds(), 3)
 		}
 		if e.Kind == "daily-summary" {

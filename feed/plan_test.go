@@ -88,9 +88,10 @@ func TestWeekdayRules(t *testing.T) {
 }
 
 // Two anchors of a weekday rule can fall to the same weekday, and the date
-// is then listed once, and its entry names both, in the order they happen. USNO moon-phase data (testdata/reference/moon-phases.csv):
-// new moon 2024-11-01 12:47 UT (mp-0105), first quarter 2024-11-09 05:55
-// UT (mp-0106), full moon 2024-11-15 21:28 UT (mp-0107); London keeps GMT
+// is then listed once, and its entry names both, in the order they happen.
+// USNO moon-phase data (testdata/reference/moon-phases.csv): new moon
+// 2024-11-01 12:47 UT (mp-0105), first quarter 2024-11-09 05:55 UT
+// (mp-0106), full moon 2024-11-15 21:28 UT (mp-0107); London keeps GMT
 // (UT) in November, and 9 November 2024 was a Saturday (Gregorian
 // calendar). "saturday after" each: 2 November, then 16 November for the
 // first quarter and again for the full moon (the first Saturday after

@@ -180,9 +180,19 @@ func (g LampLimitGap) DatesText() string {
 // reached."
 func (g LampLimitGap) lampLimitSentence() string {
 	if g.Evening() {
-		return fmt.Sprintf("Where the evening lamps start after %s (%s), they run until the target is reached.", g.Value, g.DatesText())
+		return fmt.Sprintf("Where the evening lamps start after %s (%s), %s.", g.Value, g.DatesText(), g.Outcome())
 	}
-	return fmt.Sprintf("Where the morning lamps end before %s (%s), they start as early as the target needs.", g.Value, g.DatesText())
+	return fmt.Sprintf("Where the morning lamps end before %s (%s), %s.", g.Value, g.DatesText(), g.Outcome())
+}
+
+// Outcome says what the lamps do on the dates where the limit does
+// nothing, in the calendar's description and in check's warning alike:
+// "they run until the target is reached".
+func (g LampLimitGap) Outcome() string {
+	if g.Evening() {
+		return "they run until the target is reached"
+	}
+	return "they start as early as the target needs"
 }
 
 // noteLampLimitGaps keeps in cal.LampLimitGaps the limits of f that do

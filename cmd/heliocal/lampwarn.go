@@ -18,11 +18,11 @@ func lampLimitWarnings(f *config.Feed, cal *feed.Calendar) []lampWarning {
 	for _, g := range cal.LampLimitGaps {
 		w := lampWarning{limit: fmt.Sprintf("%s|%s|%s=%s", f.ID, g.Kind, g.Option, g.Value)}
 		if g.Evening() {
-			w.text = fmt.Sprintf("feed %q: %s latest_off %q comes before the evening lamps start %s, so it does not limit them: they run until the target is reached; for no evening lamps on those dates, use months: or lamps: morning",
-				f.ID, g.Kind, g.Value, g.DatesText())
+			w.text = fmt.Sprintf("feed %q: %s latest_off %q comes before the evening lamps start %s, so it does not limit them: %s; for no evening lamps on those dates, use months: or lamps: morning",
+				f.ID, g.Kind, g.Value, g.DatesText(), g.Outcome())
 		} else {
-			w.text = fmt.Sprintf("feed %q: %s earliest_on %q comes after the morning lamps end %s, so it does not limit them: they start as early as the target needs; for no morning lamps on those dates, use months: or lamps: evening",
-				f.ID, g.Kind, g.Value, g.DatesText())
+			w.text = fmt.Sprintf("feed %q: %s earliest_on %q comes after the morning lamps end %s, so it does not limit them: %s; for no morning lamps on those dates, use months: or lamps: evening",
+				f.ID, g.Kind, g.Value, g.DatesText(), g.Outcome())
 		}
 		out = append(out, w)
 	}

@@ -202,6 +202,72 @@ func TestSortByKey(t *testing.T) {
 	}
 }
 
+// orderRuns gives what a stable sort gives for runs that take turns in the
+// same order day after day (a site's daily kinds), with the order broken
+// now and then: a kind missing a day, two kinds swapping places, a tie
+// with a kind after or before, a kind with two events a day, the kinds'
+// days drifting past each other, a run out of order late in the span.
+func TestOrderRunsDaily(t *testing.T) {
+	var scratch orderScratch
+	r := rand.New(rand.NewPCG(3, 4))
+	const day = int64(86400e9)
+	for trial := range 300 {
+		kinds := 1 + r.IntN(14)
+		days := 1 + r.IntN(120)
+		offsets := make([]int64, kinds) // each kind's time of day
+		for k := range offsets {
+			offsets[k] = r.Int64N(day)
+		}
+		var keys []int64
+		bounds := []int32{0}
+		for k := range kinds {
+			twice := r.IntN(4) == 0
+			drift := int64(0)
+			if trial%4 == 1 {
+				drift = r.Int64N(day/20) - day/40
+			}
+			for d := range int64(days) {
+				if r.IntN(30) == 0 {
+					continue // no event this day
+				}
+				at := d*day + offsets[k] + d*drift
+				switch r.IntN(40) {
+				case 0: // a tie with a kind before or after
+					at = d*day + offsets[r.IntN(kinds)]
+				case 1: // a swap of places
+					at += r.Int64N(day/4) - day/8
+				}
+				keys = append(keys, at)
+				if twice {
+					keys = append(keys, at+day/3)
+				}
+			}
+			if trial%10 == 7 && k == kinds-1 && len(keys) > int(bounds[k])+3 {
+				keys[len(keys)-2], keys[len(keys)-1] = keys[len(keys)-1]+1, keys[len(keys)-2] // out of order
+			}
+			bounds = append(bounds, int32(len(keys)))
+		}
+		events := make([]Event, len(keys))
+		for i, k := range keys {
+			events[i].Start = time.Unix(0, k)
+		}
+		want := make([]int32, len(keys))
+		for i := range want {
+			want[i] = int32(i)
+		}
+		slices.SortStableFunc(want, func(a, b int32) int { return cmp.Compare(keys[a], keys[b]) })
+		order, runOf := orderRuns(events, bounds, &scratch)
+		if !slices.Equal(order, want) {
+			t.Fatalf("trial %d, runs %v of %v: order %v, want %v", trial, bounds, keys, order, want)
+		}
+		for o, i := range order {
+			if r := runOf[o]; i < bounds[r] || i >= bounds[r+1] {
+				t.Fatalf("trial %d, runs %v: position %d given run %d", trial, bounds, i, r)
+			}
+		}
+	}
+}
+
 // A stretch of dates that need no lamps gets one note saying until when,
 // however the range is cut into chunks: computed chunk by chunk, the
 // lighting notes are those of one computation over the whole range. At

@@ -359,15 +359,17 @@ type orderScratch struct {
 // orderRuns returns the positions of events in the order of their Start,
 // equal starts by position (what a stable sort gives), where runs holds
 // the positions at which each run of events begins (a kind's events, in
-// order or nearly so) and, last, len(events). The runs are merged: the
-// runs' next events wait in a ring in order of start (on a tie, of run),
-// the first is taken, and its run's next event goes into the ring from
-// the back, where it mostly belongs (a kind's next event is a day or half
-// a day later than the one taken, after those of the other kinds): a
-// comparison or two an event. A run out of order (or more runs than the
-// ring holds) sends all the positions through stableOrder instead. It
-// returns too the run of each position in order (runOf[i] is the run of
-// events[order[i]]). Both are s's, overwritten by the next call.
+// order or nearly so) and, last, len(events). It returns too the run of
+// each position in order (runOf[i] is the run of events[order[i]]). Both
+// are s's, overwritten by the next call.
+//
+// The runs are merged (merger): a site's
+// kinds come in the same order day after day, so the merge takes each
+// event from the run the event one period before it came from, checking
+// only that it does not come before the event taken last; the runs' next
+// events in a ring in order of start (runRing) find the order where that
+// pattern breaks. A run out of order (or more runs than the ring holds)
+// sends all the positions through stableOrder instead.
 func orderRuns(events []Event, runs []int32, s *orderScratch) (order, runOf []int32) {
 	n := len(events)
 	order = slices.Grow(s.order[:0], n)[:n]
@@ -377,26 +379,14 @@ func orderRuns(events []Event, runs []int32, s *orderScratch) (order, runOf []in
 	if n == 0 {
 		return order, runOf
 	}
-	var ring runRing
-	merge := len(runs) <= len(ring.heads)+1
-	for r := 0; merge && r+1 < len(runs); r++ {
-		if runs[r] < runs[r+1] {
-			ring.insert(runHead{events[runs[r]].Start.UnixNano(), int32(r), runs[r]})
+	if len(runs) <= len(runRing{}.heads)+1 {
+		m := merger{events: events, order: order, runOf: runOf, nr: len(runs) - 1}
+		for r := range m.nr {
+			m.at.pos[r], m.end[r] = runs[r], runs[r+1]
 		}
-	}
-	for o := 0; merge && o < n; o++ {
-		h := ring.heads[ring.first&ringMask]
-		ring.first, ring.n = ring.first+1, ring.n-1
-		order[o], runOf[o] = h.pos, h.run
-		if h.pos++; h.pos < runs[h.run+1] {
-			k := events[h.pos].Start.UnixNano()
-			merge = k >= h.key // else a run out of order
-			h.key = k
-			ring.insert(h)
+		if m.merge() {
+			return order, runOf
 		}
-	}
-	if merge {
-		return order, runOf
 	}
 	keys := slices.Grow(s.keys[:0], n)[:n]
 	s.keys = keys
@@ -415,6 +405,162 @@ func orderRuns(events []Event, runs []int32, s *orderScratch) (order, runOf []in
 		runOf[o] = int32(keys[i])
 	}
 	return order, runOf
+}
+
+// merger merges runs of keys, each in order, into order and runOf (see
+// orderRuns).
+type merger struct {
+	events       []Event
+	order, runOf []int32
+	nr           int                         // the number of runs
+	end          [len(runRing{}.heads)]int32 // where each run ends
+	at           mergeState
+}
+
+// mergeState is how far a merge has come: the next position of each run,
+// the count of positions put in order, the key and run of the last.
+type mergeState struct {
+	pos     [len(runRing{}.heads)]int32
+	o       int
+	lastKey int64
+	lastRun int32
+}
+
+// merge puts every position in order, or returns false for a run out of
+// order. The ring takes the first events (two periods of the pattern at
+// least) and the stretches after a break; byPattern the rest. A state the
+// ring leaves has no run's next event before the last one taken, a state
+// byPattern leaves is checked for it (headsAfterLast) before a break can
+// send the merge back to it; and each event taken comes after the one
+// before (the ring: as long as its runs are in order, which it checks), so
+// that the order is a stable sort's.
+func (m *merger) merge() bool {
+	n := len(m.order)
+	stop := min(n, 4*m.nr+8)
+	for {
+		if !m.byRing(stop) {
+			return false
+		}
+		if m.at.o == n {
+			return true
+		}
+		L := m.period()
+		if L == 0 {
+			stop = min(n, m.at.o+m.nr+1)
+			continue
+		}
+		good := m.at
+		m.byPattern(L, &good)
+		if m.at.o == n {
+			return true
+		}
+		// a break of the pattern: from the last state known right, the
+		// ring goes on past it
+		broke := m.at.o
+		m.at = good
+		stop = min(n, broke+2*L)
+	}
+}
+
+// byRing puts positions in order by the ring until stop (at most the
+// number of positions); false for a run out of order.
+func (m *merger) byRing(stop int) bool {
+	var ring runRing
+	for r := range m.nr {
+		if p := m.at.pos[r]; p < m.end[r] {
+			ring.insert(runHead{m.events[p].Start.UnixNano(), int32(r), p})
+		}
+	}
+	o := m.at.o
+	for ; o < stop; o++ {
+		h := ring.heads[ring.first&ringMask]
+		ring.first, ring.n = ring.first+1, ring.n-1
+		m.order[o], m.runOf[o] = h.pos, h.run
+		m.at.lastKey, m.at.lastRun = h.key, h.run
+		if h.pos++; h.pos < m.end[h.run] {
+			k := m.events[h.pos].Start.UnixNano()
+			if k < h.key {
+				return false
+			}
+			h.key = k
+			ring.insert(h)
+		} else {
+			m.at.pos[h.run] = h.pos
+		}
+	}
+	m.at.o = o
+	for j := range ring.n {
+		h := &ring.heads[(ring.first+j)&ringMask]
+		m.at.pos[h.run] = h.pos
+	}
+	return true
+}
+
+// period returns the shortest period (at most four times the number of
+// runs) in which the runs of the last positions put in order repeat twice
+// over, 0 when there is none.
+func (m *merger) period() int {
+	o := m.at.o
+	for L := 1; L <= 4*m.nr && 2*L <= o; L++ {
+		i := 1
+		for i <= L && m.runOf[o-i] == m.runOf[o-i-L] {
+			i++
+		}
+		if i > L {
+			return L
+		}
+	}
+	return 0
+}
+
+// byPattern puts positions in order, each from the run of the position L
+// before it, while that run has one left whose key does not come before
+// the last one's (on a tie, whose run does not come before its run): the
+// order is then what a stable sort gives, if the state it started from
+// was right and no event of another run should come earlier. That is
+// checked every 4·L positions (headsAfterLast), and the state then kept
+// in good; byPattern returns at the first position that fails either.
+func (m *merger) byPattern(L int, good *mergeState) {
+	order, runOf, events := m.order, m.runOf[:len(m.order)], m.events
+	pos, end := &m.at.pos, &m.end
+	lastKey, lastRun := m.at.lastKey, m.at.lastRun
+	o := m.at.o
+	for o < len(order) {
+		stop := min(len(order), o+4*L)
+		for ; o < stop; o++ {
+			r := runOf[o-L] & int32(ringMask) // (a run is below the ring's size)
+			p := pos[r]
+			if p >= end[r] {
+				break
+			}
+			k := events[p].Start.UnixNano()
+			if k < lastKey || k == lastKey && r < lastRun {
+				break
+			}
+			order[o], runOf[o] = p, r
+			pos[r] = p + 1
+			lastKey, lastRun = k, r
+		}
+		m.at.o, m.at.lastKey, m.at.lastRun = o, lastKey, lastRun
+		if o < stop || !m.headsAfterLast() {
+			return
+		}
+		*good = m.at
+	}
+}
+
+// headsAfterLast reports whether the next event of every run comes after
+// the last one put in order (on a tie, is of its run or a later one): the
+// positions in order so far are then the first of all, in their order.
+func (m *merger) headsAfterLast() bool {
+	for r := range m.nr {
+		if p := m.at.pos[r]; p < m.end[r] {
+			if k := m.events[p].Start.UnixNano(); k < m.at.lastKey || k == m.at.lastKey && int32(r) < m.at.lastRun {
+				return false
+			}
+		}
+	}
+	return true
 }
 
 // runHead is a run's next event in orderRuns: its key, its run, its
@@ -755,29 +901,15 @@ const secondsPerDay = 86400
 
 // compute adds the events and notes of one kind.
 func (c *collector) compute(k config.Kind) error {
+	if alt, dir, family, ok := c.crossingKind(k); ok {
+		// one call for every crossing kind: the loop is put in line once
+		return c.crossings(k, alt, dir, family)
+	}
 	switch k.Name {
-	case "sunrise":
-		return c.crossings(k, c.p.riseAlt(), astro.Rising, "sun-horizon")
-	case "sunset":
-		return c.crossings(k, c.p.riseAlt(), astro.Setting, "sun-horizon")
 	case "sun-hidden":
 		return c.hidden(k)
 	case "noon-clear":
 		return c.noonClear(k)
-	case "civil-dawn":
-		return c.crossings(k, astro.CivilTwilight, astro.Rising, "civil")
-	case "civil-dusk":
-		return c.crossings(k, astro.CivilTwilight, astro.Setting, "civil")
-	case "nautical-dawn":
-		return c.crossings(k, astro.NauticalTwilight, astro.Rising, "nautical")
-	case "nautical-dusk":
-		return c.crossings(k, astro.NauticalTwilight, astro.Setting, "nautical")
-	case "astronomical-dawn":
-		return c.crossings(k, astro.AstronomicalTwilight, astro.Rising, "astronomical")
-	case "astronomical-dusk":
-		return c.crossings(k, astro.AstronomicalTwilight, astro.Setting, "astronomical")
-	case "sun-altitude":
-		return c.crossings(k, k.Altitude, 0, fmt.Sprintf("altitude:%g", k.Altitude))
 	case "solar-noon":
 		return c.noons(k)
 	case "golden-hour", "blue-hour":
@@ -801,6 +933,33 @@ func (c *collector) compute(k config.Kind) error {
 		return c.eclipses(k)
 	}
 	return c.addMoon(k)
+}
+
+// crossingKind returns the threshold, direction (0: both) and family of a
+// kind that lists the Sun's crossings of one altitude (collector.crossings);
+// false for the other kinds.
+func (c *collector) crossingKind(k config.Kind) (alt float64, dir astro.Direction, family string, ok bool) {
+	switch k.Name {
+	case "sunrise":
+		return c.p.riseAlt(), astro.Rising, "sun-horizon", true
+	case "sunset":
+		return c.p.riseAlt(), astro.Setting, "sun-horizon", true
+	case "civil-dawn":
+		return astro.CivilTwilight, astro.Rising, "civil", true
+	case "civil-dusk":
+		return astro.CivilTwilight, astro.Setting, "civil", true
+	case "nautical-dawn":
+		return astro.NauticalTwilight, astro.Rising, "nautical", true
+	case "nautical-dusk":
+		return astro.NauticalTwilight, astro.Setting, "nautical", true
+	case "astronomical-dawn":
+		return astro.AstronomicalTwilight, astro.Rising, "astronomical", true
+	case "astronomical-dusk":
+		return astro.AstronomicalTwilight, astro.Setting, "astronomical", true
+	case "sun-altitude":
+		return k.Altitude, 0, fmt.Sprintf("altitude:%g", k.Altitude), true
+	}
+	return 0, 0, "", false
 }
 
 // threshold is the Sun's crossings of one altitude over the collector's
@@ -962,6 +1121,9 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 	starts := c.dayStarts()
 	byDate := c.dateCrossings(th)
 	dates := c.dayDates()
+	if !horizon {
+		return c.twilightEvents(k, th, dir, family, byDate, dates, starts)
+	}
 	for i := range dates {
 		lo, hi := int(byDate[i]), int(byDate[i+1]) // the date's crossings: th.xs[lo:hi]
 		up := th.upFirst                           // the Sun above alt: as the last crossing left it
@@ -1032,6 +1194,62 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 			c.notes = append(c.notes, Note{Kind: k, Date: dates[i], State: astro.Crosses, Family: "no-event:" + k.String()})
 		}
 	}
+	return nil
+}
+
+// twilightEvents is crossings for a threshold other than the horizon (the
+// twilights, sun-altitude): an event per crossing in direction dir (both
+// when 0), a note for a date without one. The dates' crossings are walked
+// in one loop, the notes' work left to the few dates that need it.
+func (c *collector) twilightEvents(k config.Kind, th *threshold, dir astro.Direction, family string, byDate []int32, dates, starts []time.Time) error {
+	xs := th.xs[:byDate[len(dates)]]
+	events := c.events
+	j := int(byDate[0])
+	for i, d := range dates {
+		end := int(byDate[i+1])
+		listed := false
+		for ; j < end; j++ {
+			x := &xs[j]
+			if dir != 0 && x.Direction != dir {
+				continue
+			}
+			listed = true
+			// the event is written in its place in the slice (grown by
+			// crossings), field by field: a literal would be built aside
+			// and copied
+			events = events[:len(events)+1]
+			e := &events[len(events)-1]
+			*e = Event{}
+			e.Kind, e.Start, e.Direction, e.Date = k, x.Time, x.Direction, d
+		}
+		if listed {
+			continue
+		}
+		lo := int(byDate[i])
+		if lo < end {
+			// crossed the other way only: the event passed to a
+			// neighbouring date (noteSilent's note)
+			c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.Crosses, Family: "no-event:" + k.String()})
+			continue
+		}
+		up := th.upFirst // the Sun above the threshold: as the last crossing left it
+		if lo > 0 {
+			up = th.xs[lo-1].Direction == astro.Rising
+		}
+		n := Note{Kind: k, Date: d, State: astro.AlwaysBelow, Family: family}
+		if up {
+			n.State = astro.AlwaysAbove
+			if twilight(family) {
+				var err error
+				if n.SunUp, err = c.sunStaysUp(starts[i+1], starts[i+2]); err != nil {
+					c.events = events
+					return err
+				}
+			}
+		}
+		c.notes = append(c.notes, n)
+	}
+	c.events = events
 	return nil
 }
 

@@ -1263,12 +1263,13 @@ func (c *collector) dateCrossings(th *threshold) []int32 {
 	dates := c.dayDates()
 	at := c.indices(len(dates) + 1)
 	starts := c.dayStarts() // the dates first-1..last+2
-	// instants compared as Unix nanoseconds, which hold every instant
-	// astro serves (1800–2200), without time.Time.Before's call
-	x := 0
+	// a local midnight is a whole Unix second s (the zones' offsets are
+	// whole seconds), and an instant t is before it when its whole second,
+	// ⌊t⌋, is: compared as Unix seconds, without time.Time.Before's call
+	x, xs := 0, th.xs
 	for i := range at {
-		start := starts[i+1].UnixNano()
-		for x < len(th.xs) && th.xs[x].Time.UnixNano() < start {
+		start := starts[i+1].Unix()
+		for x < len(xs) && xs[x].Time.Unix() < start {
 			x++
 		}
 		at[i] = int32(x)

@@ -232,6 +232,35 @@ func TestSummaryShowsSunsetAfterMidnight(t *testing.T) {
 	}
 }
 
+// The summary of the date on which the midnight Sun begins says so: at
+// 78.2° N the Sun rises at 01:49 CEST on 18 April 2027 and then stays above
+// the horizon for days (PyEphem, see pyephemRise18), so that date's day
+// length runs from sunrise to midnight; the date before, whose day ends
+// with a sunset after midnight, says nothing of the kind.
+func TestSummaryMidnightSunBegins(t *testing.T) {
+	s := site(t, "isfjell-hut", 78.2, 15.6, "Arctic/Longyearbyen")
+	sk := sky(t, "2027-04-17", "2027-04-18")
+	es, err := sk.Entries(context.Background(), s, "hut", []config.KindSpec{{Kind: mustKinds(t, "daily-summary")[0]}}, date("2027-04-17"), date("2027-04-18"))
+	if err != nil || len(es) != 2 {
+		t.Fatalf("entries %v, %v; want two summaries", es, err)
+	}
+	d17, d18 := es[0].Description, es[1].Description
+	rise := "Sunrise " + cestMinute(pyephemRise18) + " CEST (the Sun then stays up for more than a day: midnight sun)"
+	if cestMinute(pyephemRise18) != "01:49" {
+		t.Fatalf("PyEphem's sunrise %s: the recorded value changed", cestMinute(pyephemRise18))
+	}
+	if !strings.Contains(d18, rise+"\n") || !strings.Contains(d18, ", sunrise to midnight (") {
+		t.Errorf("summary of 18 April does not say the Sun stays up after its sunrise at 01:49:\n%s", d18)
+	}
+	// the day length to midnight: 22 h 10 min from PyEphem's sunrise
+	if want := "Day length " + hm(time.Date(2027, 4, 18, 22, 0, 0, 0, time.UTC).Sub(pyephemRise18)); !strings.Contains(d18, want+", sunrise to midnight") {
+		t.Errorf("summary of 18 April lacks %q:\n%s", want, d18)
+	}
+	if strings.Contains(d17, "stays up") || strings.Contains(d17, "to midnight") {
+		t.Errorf("summary of 17 April (its day ends at 00:03 the next date) says the Sun stays up:\n%s", d17)
+	}
+}
+
 // cestMinute is instant t in CEST (UTC+2) to the nearest minute, as "15:04".
 func cestMinute(t time.Time) string {
 	return t.In(time.FixedZone("CEST", 2*3600)).Round(time.Minute).Format("15:04")

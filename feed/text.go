@@ -1227,10 +1227,26 @@ func describeSummary(s *siteInfo, d time.Time, length, delta time.Duration, evs 
 			b.WriteString(t + ".\n")
 		}
 	}
+	// staysUp: the date's last sunrise has no sunset after it, not even
+	// one after midnight (evs has that one when it ends the date's day):
+	// the Sun stays up for more than a day, and the day length runs to
+	// midnight
+	staysUp := false
+	if len(s.Skyline) == 0 {
+		for _, e := range evs {
+			switch e.Kind.Name {
+			case "sunrise":
+				staysUp = true
+			case "sunset":
+				staysUp = false
+			}
+		}
+	}
 	first := true
-	for _, e := range evs {
+	for i, e := range evs {
 		fmt.Fprintf(&b, "%s %s", plainNames[e.Kind.Name], ToMinute(e.Start).In(loc).Format("15:04 MST"))
-		if e.Kind.Name == "sunset" {
+		switch {
+		case e.Kind.Name == "sunset":
 			switch {
 			case e.Date.After(d):
 				fmt.Fprintf(&b, " (after midnight, %s)", e.Date.Format("Mon 2 January"))
@@ -1238,9 +1254,15 @@ func describeSummary(s *siteInfo, d time.Time, length, delta time.Duration, evs 
 				b.WriteString(" (ending the day before)")
 			}
 			first = false
+		case staysUp && e.Kind.Name == "sunrise" && !slices.ContainsFunc(evs[i+1:], func(e Event) bool { return e.Kind.Name == "sunrise" }):
+			b.WriteString(" (the Sun then stays up for more than a day: midnight sun)")
 		}
 		b.WriteByte('\n')
 	}
-	fmt.Fprintf(&b, "%s %s (%s from the day before).", lengthName, hm(length), Change(delta))
+	if staysUp {
+		fmt.Fprintf(&b, "%s %s, sunrise to midnight (%s from the day before).", lengthName, hm(length), Change(delta))
+	} else {
+		fmt.Fprintf(&b, "%s %s (%s from the day before).", lengthName, hm(length), Change(delta))
+	}
 	return title, b.String()
 }

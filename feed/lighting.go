@@ -601,11 +601,6 @@ func daySeconds(u int64) int {
 	return int(s)
 }
 
-// appendMinute appends the clock to the minute, "16:42".
-func (c shownClock) appendMinute(b []byte) []byte {
-	return append(b, byte('0'+c.hm/10), byte('0'+c.hm%10), ':', byte('0'+c.mm/10), byte('0'+c.mm%10))
-}
-
 // appendSecond appends the clock to the second and the zone, as
 // localClock writes it.
 func (c shownClock) appendSecond(b []byte) []byte {
@@ -639,6 +634,14 @@ type lightingText struct {
 	// the limit that clips a morning period (earliest_on) and an evening
 	// one (latest_off), as limits writes it; "" when the kind has none
 	onLimit, offLimit string
+	// the end of the description of a morning (0) or evening (1) period
+	// that makes up for no other, after the natural day's length, by
+	// whether it is clipped and short: the goal and the period's last
+	// line, without its newline ("; target 16 h.\nClipped (off no later
+	// than 23:00): the target is not reached today.")
+	tail [2][2][2]string
+	// lead[pi]: "Morning lamps on at ", "Evening lamps on at "
+	lead [2]string
 }
 
 // lightingKey is what a lighting kind's text depends on.
@@ -674,6 +677,15 @@ func (w *entryWriter) lightingText(spec *config.KindSpec) *lightingText {
 		lt.clippedShort[i] = "Clipped (" + lt.partLimit(part) + "): the target is not reached today.\n"
 		lt.clippedMade[i] = "Clipped (" + lt.partLimit(part) + "); the " + otherPart(part) + " lamps make up the difference: the target is reached.\n"
 	}
+	lt.lead = [2]string{"Morning lamps on at ", "Evening lamps on at "}
+	for pi := range lt.tail {
+		for clipped, last := range [2][2]string{{"", "The target is not reached today.\n"}, {lt.clippedMade[pi], lt.clippedShort[pi]}} {
+			for short, line := range last {
+				tail := lt.goal + line
+				lt.tail[pi][clipped][short] = tail[:len(tail)-1]
+			}
+		}
+	}
 	w.lamp = lt
 	return lt
 }
@@ -690,6 +702,14 @@ func partIndex(part string) int {
 	return 2
 }
 
+// b2i is 1 for true, 0 for false.
+func b2i(b bool) int {
+	if b {
+		return 1
+	}
+	return 0
+}
+
 // otherPart is the other period of lamps: both, for a period of the part.
 func otherPart(part string) string {
 	if part == partMorning {
@@ -704,8 +724,10 @@ func otherPart(part string) string {
 // period is clipped or longer than its share when it is.
 func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Event) ([]byte, []byte) {
 	on, off := shownAt(e.Start, s.zone), shownAt(e.End, s.zone)
-	t := on.appendMinute(append(title, "Lamps on "...))
-	t = off.appendMinute(append(t, "–"...))
+	// "Lamps on 16:16–23:00", the dash in UTF-8
+	t := append(title, 'L', 'a', 'm', 'p', 's', ' ', 'o', 'n', ' ',
+		byte('0'+on.hm/10), byte('0'+on.hm%10), ':', byte('0'+on.mm/10), byte('0'+on.mm%10), 0xe2, 0x80, 0x93,
+		byte('0'+off.hm/10), byte('0'+off.hm%10), ':', byte('0'+off.mm/10), byte('0'+off.mm%10))
 	// the local date of the period's last instant, a nanosecond before
 	// its end
 	last := e.End.Unix()
@@ -715,7 +737,7 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	if s.zone.dayOf(last) != e.Date.Unix()/secondsPerDay {
 		t = append(t, " (+1 day)"...)
 	}
-	t = append(t, " ("...)
+	t = append(t, ' ', '(')
 	lamp := len(t)
 	t = appendHM(t, e.Lamp) // as the natural day below
 	lampHM := t[lamp:]
@@ -725,6 +747,19 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		t = append(t, lt.reached...)
 	}
 	pi := partIndex(e.Part)
+	if pi < 2 && e.MadeUp <= 0 {
+		// a morning or evening period that makes up for no other (nearly
+		// every period): the text below, its last lines written once
+		// per feed
+		b := append(dst, lt.lead[pi]...)
+		b = append(b, byte('0'+on.h/10), byte('0'+on.h%10), ':', byte('0'+on.m/10), byte('0'+on.m%10), ':', byte('0'+on.s/10), byte('0'+on.s%10), ' ')
+		b = append(b, on.zone...)
+		b = append(b, ',', ' ', 'o', 'f', 'f', ' ', 'a', 't', ' ',
+			byte('0'+off.h/10), byte('0'+off.h%10), ':', byte('0'+off.m/10), byte('0'+off.m%10), ':', byte('0'+off.s/10), byte('0'+off.s%10), ' ')
+		b = append(b, off.zone...)
+		b = append(append(append(b, ' ', '('), lampHM...), lt.open...)
+		return append(appendHM(b, e.DayLength), lt.tail[pi][b2i(e.Clipped)][b2i(e.Short)]...), t
+	}
 	whole := e.Part == partPolarNight || e.Part == partBehindSkyline // one period round solar noon
 	b := dst
 	switch {

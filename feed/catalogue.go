@@ -209,13 +209,16 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 		w.text = textBuffers.get(days * textPerEntry)
 	}
 	w.spans = textSpans.get(days + days/8) // a kind's entries: flushText empties it after each
-	w.dates, w.firstDay = dateTexts.get(days)[:days], col.first.Unix()/secondsPerDay
+	w.dates, w.firstDay = col.keyDates, col.first.Unix()/secondsPerDay
+	if len(w.dates) != days {
+		w.dates = dateTexts.get(days)[:days]
+		defer dateTexts.put(w.dates)
+	}
 	defer func() {
 		if !keepText {
 			textBuffers.reuse(w.text)
 		}
 		textSpans.put(w.spans)
-		dateTexts.put(w.dates)
 	}()
 	if err := col.prepare(altitudes(col.p.Observer, specs)...); err != nil {
 		return nil, nil, err

@@ -105,6 +105,8 @@ func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed,
 	if err != nil {
 		return nil, nil, nil, err
 	}
+	col.keyDates = dateTexts.get(daysBetween(col.first, col.last) + 1)[:daysBetween(col.first, col.last)+1]
+	defer func() { dateTexts.put(col.keyDates) }()
 	pd, err := sky.allPlanDates(col, parsed)
 	if err != nil {
 		return nil, nil, nil, err
@@ -215,7 +217,8 @@ func (sky *Sky) allPlanDates(col *collector, parsed []*plan) (planDates, error) 
 func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parsed []*plan, kinds []config.KindSpec, pd planDates, out []Entry, text []byte) ([]Entry, []byte, error) {
 	last := col.last
 	col.spec, col.maxLit = config.KindSpec{}, 0
-	w := entryWriter{feedID: feedID, site: col.siteInfo(s), noted: map[string]bool{}, last: last, out: out, clockOn: col}
+	w := entryWriter{feedID: feedID, site: col.siteInfo(s), noted: map[string]bool{}, last: last, out: out, clockOn: col,
+		dates: col.keyDates, firstDay: col.first.Unix() / secondsPerDay}
 	w.spans = textSpans.get(pd.total)
 	defer func() { textSpans.put(w.spans) }()
 	if text != nil && cap(text)-len(text) >= pd.total*textPerEntry {
@@ -641,8 +644,8 @@ func newPlanText(pl *plan) *planText {
 func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config.Kind]*kindTimes, cats []string) error {
 	z := w.site.zone
 	d := pd.date
-	w.out = append(w.out, Entry{Kind: KindPlan, Title: pl.cfg.Title, Categories: cats, Date: d, Alarm: w.alarm})
-	en := &w.out[len(w.out)-1]
+	en := w.next() // out's elements past its length are zero, as entries leaves them
+	en.Kind, en.Title, en.Categories, en.Date, en.Alarm = KindPlan, pl.cfg.Title, cats, d, w.alarm
 	from := len(w.text)
 	b := append(w.text, pt.lead...)
 	if pd.anchored {
@@ -660,7 +663,7 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 	done := func(b []byte) error {
 		sp := textSpan{entry: len(w.out) - 1, from: from, to: len(b), uid: len(b)}
 		key := append(append(append(append(append(w.buf[:0], w.feedID...), '|'), KindPlan...), '|'), pl.cfg.Title...)
-		key = appendDate(append(append(append(key, '|'), pl.cfg.Date...), '|'), d)
+		key = w.appendKeyDate(append(append(append(key, '|'), pl.cfg.Date...), '|'), d)
 		if pt.counted {
 			key = append(key, "|0"...)
 			w.buf = key

@@ -772,6 +772,10 @@ type collector struct {
 	// some dates, each lighting kind's found from its own entries as they
 	// are written (appendLimitGaps)
 	gaps *limitGaps
+	// keyDates, when set, is the table of the window's date texts of the
+	// UID keys (entryWriter.dates) that the feed's kinds and its plans
+	// share: the plans' dates are among the dates the kinds wrote
+	keyDates []dateText
 
 	transits    []astro.Transit             // the Sun's transits over first-1..last, computed once (sunTransits)
 	noonsByDate map[time.Time]astro.Transit // the same by local date (noonOf)

@@ -22,11 +22,27 @@ var weekdayNames = []string{"sun", "mon", "tue", "wed", "thu", "fri", "sat"}
 
 var monthNames = []string{"jan", "feb", "mar", "apr", "may", "jun", "jul", "aug", "sep", "oct", "nov", "dec"}
 
+// The weekdays' and months' names in full and in lower case ("sunday",
+// "january"), as time writes them, made once: a feed's plans read their
+// date rules each time the feed is built.
+var (
+	weekdayFull = lowerNames(7, func(i int) string { return time.Weekday(i).String() })
+	monthFull   = lowerNames(12, func(i int) string { return time.Month(i + 1).String() })
+)
+
+func lowerNames(n int, name func(int) string) []string {
+	out := make([]string, n)
+	for i := range out {
+		out[i] = strings.ToLower(name(i))
+	}
+	return out
+}
+
 // ParseWeekday reads a day of the week: "mon" or "monday", any case.
 func ParseWeekday(s string) (time.Weekday, bool) {
 	t := strings.ToLower(strings.TrimSpace(s))
 	for i, n := range weekdayNames {
-		if t == n || t == strings.ToLower(time.Weekday(i).String()) {
+		if t == n || t == weekdayFull[i] {
 			return time.Weekday(i), true
 		}
 	}
@@ -37,7 +53,7 @@ func ParseWeekday(s string) (time.Weekday, bool) {
 func ParseMonth(s string) (time.Month, bool) {
 	t := strings.ToLower(strings.TrimSpace(s))
 	for i, n := range monthNames {
-		if t == n || t == strings.ToLower(time.Month(i+1).String()) {
+		if t == n || t == monthFull[i] {
 			return time.Month(i + 1), true
 		}
 	}

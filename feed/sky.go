@@ -1319,8 +1319,11 @@ func (c *collector) sunStaysUp(start, end time.Time) (bool, error) {
 func (c *collector) dayDates() []time.Time {
 	if c.dates == nil {
 		c.dates = c.times(daysBetween(c.first, c.last) + 1)
+		// first is a date at 00:00 UTC: time.Unix gives what Add would,
+		// without its checks
+		first := c.first.Unix()
 		for i := range c.dates {
-			c.dates[i] = c.first.Add(time.Duration(i) * 24 * time.Hour)
+			c.dates[i] = time.Unix(first+int64(i)*secondsPerDay, 0).UTC()
 		}
 	}
 	return c.dates
@@ -1343,7 +1346,9 @@ func (c *collector) dayStarts() []time.Time {
 		known := false    // the last start is a midnight and end is its period's
 		for i := range c.starts {
 			if known {
-				if next := c.starts[i-1].Add(24 * time.Hour); end.IsZero() || next.Before(end) {
+				// (what Add(24 * time.Hour) gives, without its checks)
+				next := time.Unix(c.starts[i-1].Unix()+secondsPerDay, 0).In(c.p.Location)
+				if end.IsZero() || next.Before(end) {
 					c.starts[i] = next
 					continue
 				}
@@ -1664,11 +1669,22 @@ func (c *collector) noons(k config.Kind) error {
 	if err != nil {
 		return err
 	}
-	for _, t := range ts {
-		d := c.zone().date(t.Time)
-		if c.inRange(d) {
-			c.events = append(c.events, Event{Kind: k, Start: t.Time, Date: d, Altitude: t.Altitude})
+	// the dates compared as day numbers (zoneCache.day), the date made
+	// for the transits in range only
+	z := c.zone()
+	first, last := c.first.Unix()/secondsPerDay, c.last.Unix()/secondsPerDay
+	c.events = slices.Grow(c.events, len(ts))
+	for i := range ts {
+		t := &ts[i]
+		day := z.day(t.Time)
+		if day < first || day > last {
+			continue
 		}
+		// written in its place in the slice, as crossings does
+		c.events = c.events[:len(c.events)+1]
+		e := &c.events[len(c.events)-1]
+		*e = Event{}
+		e.Kind, e.Start, e.Date, e.Altitude = k, t.Time, time.Unix(day*secondsPerDay, 0).UTC(), t.Altitude
 	}
 	return nil
 }

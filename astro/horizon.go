@@ -355,15 +355,29 @@ type extremum struct {
 	upper bool    // near hour angle 0 (maximum) rather than 180° (minimum)
 }
 
-// remainder2Pi is math.Remainder(x, 2π), the same number, at a tenth of
-// its cost where x lies within ±3π (the change of a smooth angle from one
-// sample to the next, across a wrap): x − 2π·n with n = round(x/2π) of −1,
-// 0 or 1 is then exact (x and 2π within a factor of two of each other when
-// n ≠ 0), as the IEEE remainder is. Halfway cases (|x| = π, where the
-// remainder rounds n to even) and larger |x| go to math.Remainder.
+// 2π as a float64 (2*math.Pi, the divisor of math.Remainder) in two
+// parts whose low bits are zero (25 and 23 significant bits), so that n
+// times either is exact for |n| < 2²⁸.
+const (
+	twoPiHi = 0x1.921fb5p+2
+	twoPiLo = 0x1.110b46p-24
+)
+
+// remainder2Pi is math.Remainder(x, 2π), the same number (a zero may come
+// without the sign of x, which adding it to an angle does not see), at a
+// tenth of its cost: x − 2π·n with n = round(x/2π), taken as (x − n·hi) −
+// n·lo, is exact when |x − 2π·n| < π, as the IEEE remainder is: n·hi and
+// n·lo are exact, x and n·hi lie within a factor of two of each other
+// (n ≠ 0), so that their difference is exact, and the remainder is a
+// float64, so that the last difference is too. A result not below π (n
+// misjudged next to a halfway case, where the remainder rounds n to even)
+// goes to math.Remainder. Where the track unwraps its hour angle, each
+// sample is taken from an unwrapped one and the Sun's tabulated ones step
+// by a turn each year (the right ascension's wrap at the March
+// equinox), so that after a few years n is several turns.
 func remainder2Pi(x float64) float64 {
 	n := math.Round(x / (2 * math.Pi))
-	if r := x - n*(2*math.Pi); math.Abs(n) <= 1 && math.Abs(r) < math.Pi {
+	if r := (x - n*twoPiHi) - n*twoPiLo; math.Abs(n) < 1<<28 && math.Abs(r) < math.Pi {
 		return r
 	}
 	return math.Remainder(x, 2*math.Pi)

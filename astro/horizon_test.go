@@ -56,3 +56,31 @@ func TestUnixMicros(t *testing.T) {
 		check(sec)
 	}
 }
+
+// TestRemainder2Pi: the track's unwrapping step gives math.Remainder(x, 2π)
+// to the bit (a zero's sign aside), for differences of a fraction of a
+// turn to 10⁶ rad (the hour angles' size over the years), at random, at
+// and next to the multiples of π (where a halfway case rounds to even),
+// and at the yearly turns of the Sun's tabulated hour angle.
+func TestRemainder2Pi(t *testing.T) {
+	r := rand.New(rand.NewPCG(5, 6))
+	check := func(x float64) {
+		t.Helper()
+		got, want := remainder2Pi(x), math.Remainder(x, 2*math.Pi)
+		if got != want || got != 0 && math.Float64bits(got) != math.Float64bits(want) {
+			t.Fatalf("remainder2Pi(%v) = %v, want %v", x, got, want)
+		}
+	}
+	for range 200000 {
+		check((r.Float64()*2 - 1) * 12 * math.Pi)
+		check((r.Float64()*2 - 1) * 1e6)
+		check(2*math.Pi*math.Floor(r.Float64()*40) + (r.Float64()*2-1)*0.05)
+	}
+	for _, m := range []float64{0, 1, 2, 3, 4, 5, 7, 12, 41, 1e3 + 1, 318309, 1 << 20} {
+		for _, x := range []float64{m * math.Pi, -m * math.Pi} {
+			check(x)
+			check(math.Nextafter(x, math.Inf(1)))
+			check(math.Nextafter(x, math.Inf(-1)))
+		}
+	}
+}

@@ -170,7 +170,12 @@ func decimalYear(sec float64) float64 {
 }
 
 // taiMinusUTC returns TAI − UTC in seconds for Unix second sec (1972 on).
+// From the last leap second on (the usual case: every instant since 2017)
+// the count is all of them, without the search.
 func taiMinusUTC(sec float64) float64 {
+	if n := len(leapSeconds); n > 0 && sec >= leapSeconds[n-1] {
+		return 10 + float64(n)
+	}
 	return 10 + float64(sort.SearchFloat64s(leapSeconds, math.Nextafter(sec, math.Inf(1))))
 }
 

@@ -56,6 +56,17 @@ type zoneCache struct {
 	from, to int64 // from inclusive, to exclusive; from > to before the first look-up
 	off      int64 // seconds east of UTC
 	name     string
+	// seen are the first periods looked up (lookup): a feed's kinds,
+	// its plans and its lamps' checks each go through the window from
+	// its first date again, and find them here
+	seen  [8]zonePeriod
+	nseen int
+}
+
+// zonePeriod is a period of a zone, as zoneCache holds it.
+type zonePeriod struct {
+	from, to, off int64
+	name          string
 }
 
 func newZoneCache(loc *time.Location) *zoneCache {
@@ -74,6 +85,12 @@ func (z *zoneCache) at(u int64) (string, int64) {
 // lookup caches the zone's period of the Unix second u, for at: at itself,
 // without it, is small enough to be written in place where it is called.
 func (z *zoneCache) lookup(u int64) {
+	for i := range z.nseen {
+		if p := &z.seen[i]; u >= p.from && u < p.to {
+			z.name, z.off, z.from, z.to = p.name, p.off, p.from, p.to
+			return
+		}
+	}
 	lt := time.Unix(u, 0).In(z.loc)
 	name, off := lt.Zone()
 	from, to := lt.ZoneBounds()
@@ -83,6 +100,10 @@ func (z *zoneCache) lookup(u int64) {
 	}
 	if !to.IsZero() {
 		z.to = to.Unix()
+	}
+	if z.nseen < len(z.seen) {
+		z.seen[z.nseen] = zonePeriod{from: z.from, to: z.to, off: z.off, name: z.name}
+		z.nseen++
 	}
 }
 

@@ -253,7 +253,7 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 		w.flushText()
 		w.out = keep(w.out, from, spec)
 		if col.gaps != nil && spec.Kind.Name == config.KindLighting {
-			col.gaps.gaps = appendLimitGaps(col.gaps.gaps, spec, w.out[from:], w.site.zone)
+			col.gaps.gaps = appendLimitGaps(col.gaps.gaps, spec, w.cur.kind, w.out[from:], w.site.zone)
 		}
 		// each kind's events are done with once they are entries
 		col.events, col.notes = col.events[:0], col.notes[:0]

@@ -5,6 +5,7 @@ import (
 	"math"
 	"strings"
 	"time"
+	"unsafe"
 
 	"heliocal/config"
 )
@@ -53,7 +54,7 @@ func lampLimitGaps(f *config.Feed, cal *Calendar) []LampLimitGap {
 	z := newZoneCache(cal.Site.Location)
 	for _, k := range f.Kinds {
 		if k.Kind.Name == config.KindLighting {
-			out = appendLimitGaps(out, k, cal.Entries, z)
+			out = appendLimitGaps(out, k, k.Kind.String(), cal.Entries, z)
 		}
 	}
 	return out
@@ -79,9 +80,9 @@ func ownLimitGaps(f *config.Feed) bool {
 
 // appendLimitGaps appends to out the limits of the lighting kinds entry k
 // that do nothing on some of the dates of es, entries in the order of
-// their dates (those of k's kind count; z is the site's zone).
-func appendLimitGaps(out []LampLimitGap, k config.KindSpec, es []Entry, z *zoneCache) []LampLimitGap {
-	name := k.Kind.String()
+// their dates (those of k's kind, name as the entries write it, count; z
+// is the site's zone).
+func appendLimitGaps(out []LampLimitGap, k config.KindSpec, name string, es []Entry, z *zoneCache) []LampLimitGap {
 	for _, lim := range [...]struct {
 		key, value, part string
 	}{{"latest_off", k.LatestOff, partEvening}, {"earliest_on", k.EarliestOn, partMorning}} {
@@ -100,7 +101,10 @@ func appendLimitGaps(out []LampLimitGap, k config.KindSpec, es []Entry, z *zoneC
 		lastDay := int64(math.MinInt64) // the last date of the last stretch, days since 1970-01-01
 		for i := range es {
 			e := &es[i]
-			if e.AllDay || e.Facts.Note || e.Facts.Part != lim.part || e.Kind != name {
+			// the part against the constants, compared in place, and the
+			// kind mostly the same string as name
+			if evening && e.Facts.Part != partEvening || !evening && e.Facts.Part != partMorning ||
+				e.AllDay || e.Facts.Note || !sameString(e.Kind, name) {
 				continue
 			}
 			// the clock time, on the entry's date, of the end the limit
@@ -225,4 +229,10 @@ func noteLampLimitGaps(s *config.Site, f *config.Feed, cal *Calendar, gaps *limi
 			cal.Description = cal.Description[:i] + " " + strings.Join(add, " ") + cal.Description[i:]
 		}
 	}
+}
+
+// sameString reports whether a == b, at once when both are the same
+// string (the entries of a kinds entry share their kind's).
+func sameString(a, b string) bool {
+	return len(a) == len(b) && (unsafe.StringData(a) == unsafe.StringData(b) || a == b)
 }

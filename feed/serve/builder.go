@@ -469,15 +469,19 @@ func (s *Server) render(w http.ResponseWriter, r *http.Request, name string, dat
 
 // tableView is the data of table.html.
 type tableView struct {
-	Page          PageInfo
-	Title, Zone   string
-	Coords        string
-	HTTPS, Webcal string
-	Link, QR      template.URL
-	Days          []previewDay
-	From, To      string
-	Builder       bool
-	Legal         bool
+	Page        PageInfo
+	Title, Zone string
+	Coords      string
+	HTTPS       string
+	// Webcal is the subscribe link; html/template would replace a plain
+	// string of the webcal: scheme with "#ZgotmplZ" (it lets only http,
+	// https and mailto through), leaving the button dead.
+	Webcal   template.URL
+	Link, QR template.URL
+	Days     []previewDay
+	From, To string
+	Builder  bool
+	Legal    bool
 }
 
 func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
@@ -488,7 +492,7 @@ func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
 	https, page := s.links(r, q, start, 0)
 	v := tableView{Page: s.page(), Title: cal.Title, Zone: q.Location.String(),
 		Coords: fmt.Sprintf("%.4f, %.4f, %g m", q.Latitude, q.Longitude, q.Elevation) + q.horizonWords(),
-		HTTPS:  https, Webcal: webcal(https), Link: template.URL(page), QR: template.URL(qrDataURL(page)),
+		HTTPS:  https, Webcal: template.URL(webcal(https)), Link: template.URL(page), QR: template.URL(qrDataURL(page)),
 		Days: days(cal, q), From: q.Start.Format(time.DateOnly), To: q.Start.AddDate(0, 0, q.Days-1).Format(time.DateOnly),
 		Builder: !s.page().NoBuilder, Legal: slices.ContainsFunc(q.Kinds, LegalKind)}
 	s.render(w, r, "table.html", v)

@@ -105,6 +105,15 @@ func TestBuilderPages(t *testing.T) {
 			}
 		}
 	}
+	// The table's subscribe button carries the webcal: link (the scheme
+	// Apple's and most desktop calendars subscribe with, common practice),
+	// not html/template's "#ZgotmplZ" for a scheme it does not trust.
+	tb := body(t, get(t, h, "GET", "/at?lat=-33.6&lon=-70.7&tz=America/Santiago&kinds=sunrise&days=2&start=2027-09-03"))
+	want := `<a class="button" href="webcal://example.com/at.ics?lat=-33.6&amp;lon=-70.7&amp;`
+	if !strings.Contains(tb, want) || strings.Contains(tb, "ZgotmplZ") {
+		i := strings.Index(tb, `class="button"`)
+		t.Errorf("/at subscribe button: %.160q, want it to begin %q", tb[max(i, 0):], want)
+	}
 	if r := get(t, h, "GET", "/at?lat=47.8&lon=13.05&kinds=sunrise&days=63"); r.StatusCode != 400 {
 		t.Errorf("a 63-day table: %d, want 400", r.StatusCode)
 	}

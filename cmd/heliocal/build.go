@@ -129,8 +129,11 @@ func chartsFor(cfg *config.Config, now time.Time, feeds *feed.Sky) func(context.
 		chart.Levels = levels
 		// One search for the clock's kinds and the marks: the site's
 		// crossings of the Sun (over its skyline too) are found once.
-		clock := append([]config.Kind{chartKind("sunrise"), chartKind("sunset"), chartKind("new-moon"), chartKind("full-moon")}, spanKinds...)
-		events, _, err := sky.Events(ctx, place, append(clock, marks...), first, last)
+		var specs []config.KindSpec
+		for _, k := range append([]config.Kind{chartKind("sunrise"), chartKind("sunset"), chartKind("new-moon"), chartKind("full-moon")}, marks...) {
+			specs = append(specs, config.KindSpec{Kind: k})
+		}
+		events, _, err := sky.EventsFor(ctx, place, append(specs, spanKinds...), first, last)
 		if err != nil {
 			return nil, err
 		}
@@ -160,11 +163,23 @@ func chartDays(sky *feed.Sky, place feed.Place, first, last time.Time) ([]publis
 // thresholds (drawn as levels), the yearly kinds drawn as marks: the
 // seasons, cross-quarter days, apsides and eclipses (not the Moon's phases,
 // which the chart draws as symbols of their own), and the lamp periods and
-// dark windows drawn on the clock. Each kind counts once.
-func chartKinds(cfg *config.Config, siteID string) ([]publish.Level, []config.Kind, []config.Kind) {
+// dark windows drawn on the clock, each with the options that set when they
+// are (the lamps' end of the day, their limits and minimum, what counts as
+// natural light; the dark window's Moon), so that the chart draws them where
+// the feed puts them. Each kind counts once, a lamp or dark-window kind once
+// per set of those options.
+func chartKinds(cfg *config.Config, siteID string) ([]publish.Level, []config.Kind, []config.KindSpec) {
 	var levels []publish.Level
-	var marks, spanKinds []config.Kind
+	var marks []config.Kind
+	var spanKinds []config.KindSpec
 	seen := map[string]bool{}
+	type spanKey struct {
+		kind                                  string
+		maxLit                                float64
+		min                                   config.Duration
+		lamps, natural, latestOff, earliestOn string
+	}
+	spanSeen := map[spanKey]bool{}
 	for _, f := range cfg.Feeds {
 		if f.Site != siteID {
 			continue
@@ -172,11 +187,19 @@ func chartKinds(cfg *config.Config, siteID string) ([]publish.Level, []config.Ki
 		for _, ks := range f.Kinds {
 			k := ks.Kind
 			switch {
+			case k.Name == config.KindLighting || k.Name == "dark-window":
+				sp := config.KindSpec{Kind: k, MaxIllumination: ks.MaxIllumination}
+				if k.Name == config.KindLighting {
+					sp.MinDuration, sp.Lamps, sp.Natural, sp.LatestOff, sp.EarliestOn = ks.MinDuration, ks.Lamps, ks.Natural, ks.LatestOff, ks.EarliestOn
+				}
+				key := spanKey{k.String(), sp.MaxIllumination, sp.MinDuration, sp.Lamps, sp.Natural, sp.LatestOff, sp.EarliestOn}
+				if !spanSeen[key] {
+					spanKinds = append(spanKinds, sp)
+				}
+				spanSeen[key] = true
 			case seen[k.String()]:
 			case k.Name == "photoperiod":
 				levels = append(levels, publish.Level{Length: k.DayLength})
-			case k.Name == config.KindLighting || k.Name == "dark-window":
-				spanKinds = append(spanKinds, k)
 			case k.IsYearly() && (!k.IsMoon() || k.Family() == config.FamilyEclipse):
 				marks = append(marks, k)
 			}

@@ -173,3 +173,43 @@ feeds:
 		}
 	}
 }
+
+// The chart draws the lamp periods where the feed puts them, with the kinds
+// entry's options: morning lamps end at sunrise, evening lamps start at
+// sunset, and a latest_off cuts them. At the USNO coordinates of
+// Washington, DC, on 5 March 2024 sunrise is 06:34 and sunset 18:06 EST
+// (USNO one-day data service, testdata/reference/sun-times.csv sun-0270,
+// sun-0272): a day of 11 h 32 min, 2 h 28 min short of 14 h.
+func TestChartLampsFollowTheirOptions(t *testing.T) {
+	for _, tc := range []struct {
+		name, opts string
+		from, to   time.Duration // the one lamp piece on 5 March, ± 1 min
+	}{
+		{"morning", "lamps: morning", 4*time.Hour + 6*time.Minute, 6*time.Hour + 34*time.Minute},
+		{"evening", "lamps: evening", 18*time.Hour + 6*time.Minute, 20*time.Hour + 34*time.Minute},
+		{"cut", `lamps: evening, latest_off: "19:30"`, 18*time.Hour + 6*time.Minute, 19*time.Hour + 30*time.Minute},
+	} {
+		cfg, err := config.Parse(strings.NewReader(`
+sites:
+  - {id: mall, latitude: 38.889444, longitude: -77.035278, elevation: 0, timezone: America/New_York}
+feeds:
+  - {id: mall-lamps, site: mall, kinds: [{kind: "lighting:14h", `+tc.opts+`}]}
+`), "yaml")
+		if err != nil {
+			t.Fatal(err)
+		}
+		c, err := chartsFor(cfg, time.Date(2024, 1, 1, 15, 0, 0, 0, time.UTC), nil)(context.Background(), feed.SiteOf(&cfg.Sites[0]))
+		if err != nil {
+			t.Fatal(err)
+		}
+		var got []publish.ClockSpan
+		for _, s := range c.Lamps {
+			if s.Date.Equal(time.Date(2024, 3, 5, 0, 0, 0, 0, time.UTC)) {
+				got = append(got, s)
+			}
+		}
+		if len(got) != 1 || (got[0].From-tc.from).Abs() > time.Minute || (got[0].To-tc.to).Abs() > time.Minute {
+			t.Errorf("%s: lamp pieces on 5 March 2024 %+v, want one from %v to %v (± 1 min)", tc.name, got, tc.from, tc.to)
+		}
+	}
+}

@@ -175,6 +175,9 @@ func TestValidationErrors(t *testing.T) {
 		{"min-duration-wrong-kind.yaml", "feeds[0].kinds[0].min_duration", "30m", "has no meaning for sunrise", "dark-window", 0},
 		{"bad-weekday.yaml", "feeds[0].kinds[0].weekdays[1]", "satday", "not a day of the week", "sat", 0},
 		{"bad-month.yaml", "feeds[0].kinds[0].months[1]", "fbr", "not a month", "feb", 0},
+		// a misspelt full name gets the full name it is nearest to
+		{"bad-weekday-full.yaml", "feeds[0].kinds[0].weekdays[1]", "wednesdy", "not a day of the week", `did you mean "wednesday"?`, 0},
+		{"bad-month-full.yaml", "feeds[0].plans[0].months[1]", "febuary", "not a month", `did you mean "february"?`, 0},
 		{"bad-kind-alarm.yaml", "feeds[0].kinds[0].alarm", "-10m", "must not be negative", "", 0},
 		{"bad-plan-date.yaml", "feeds[0].plans[0].date", "every fortnight", "is not a weekday", "every friday", 0},
 		{"bad-plan-date-day.yaml", "feeds[0].plans[0].date", "every 02-30", `"02-30" is not a date of the year`, "every 02-29", 0},

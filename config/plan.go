@@ -3,6 +3,7 @@ package config
 import (
 	"errors"
 	"fmt"
+	"slices"
 	"strconv"
 	"strings"
 	"time"
@@ -331,13 +332,13 @@ func checkAlarm(ps *problems, path string, a *Duration) {
 
 func checkFilter(ps *problems, p string, weekdays, months []string) {
 	for _, l := range []struct {
-		key, what, all string
-		values, names  []string
-		ok             func(string) bool
+		key, what, all      string
+		values, names, full []string
+		ok                  func(string) bool
 	}{
-		{"weekdays", "not a day of the week", "mon, tue, wed, thu, fri, sat or sun", weekdays, weekdayNames,
+		{"weekdays", "not a day of the week", "mon, tue, wed, thu, fri, sat or sun", weekdays, weekdayNames, weekdayFull,
 			func(s string) bool { _, ok := ParseWeekday(s); return ok }},
-		{"months", "not a month", "jan, feb, mar, apr, may, jun, jul, aug, sep, oct, nov or dec", months, monthNames,
+		{"months", "not a month", "jan, feb, mar, apr, may, jun, jul, aug, sep, oct, nov or dec", months, monthNames, monthFull,
 			func(s string) bool { _, ok := ParseMonth(s); return ok }},
 	} {
 		for i, v := range l.values {
@@ -345,12 +346,29 @@ func checkFilter(ps *problems, p string, weekdays, months []string) {
 				continue
 			}
 			hint := l.all
-			if near := closest(strings.ToLower(v), l.names); near != "" {
+			if near := nearName(strings.ToLower(strings.TrimSpace(v)), l.names, l.full); near != "" {
 				hint = fmt.Sprintf("did you mean %q?", near)
 			}
 			ps.add(fmt.Sprintf("%s.%s[%d]", p, l.key, i), v, l.what, hint)
 		}
 	}
+}
+
+// nearName is the day or month name a misspelt one v (lower case) most
+// likely means: the short name within a few edits ("juli": "jul"), else the
+// full name whose short name v begins with ("wednesdy": "wednesday", the
+// short names being the full ones' first three letters), else the full name
+// within a few edits ("febuary": "february"); "" when none is near.
+func nearName(v string, short, full []string) string {
+	if near := closest(v, short); near != "" {
+		return near
+	}
+	if len(v) > 3 {
+		if i := slices.Index(short, v[:3]); i >= 0 {
+			return full[i]
+		}
+	}
+	return closest(v, full)
 }
 
 // validateOptions checks the per-entry options of a kinds entry: alarm,

@@ -227,6 +227,15 @@ func (c *collector) lighting(k config.Kind) error {
 		needs[i] = dl.length < k.DayLength && !(dl.length == 0 && dl.touched)
 	}
 	lim := limitsOf(spec)
+	if lamps := spec.Lamps; lamps != config.LampsBoth {
+		// one period a date: its limit from the table of the dates'
+		if lim.hasOff {
+			lim.offAt, lim.starts = c.limitNanos(lim.off, lim.starts)
+		}
+		if lim.hasOn {
+			lim.onAt, lim.starts = c.limitNanos(lim.on, lim.starts)
+		}
+	}
 	minLen := spec.MinDuration.D()
 	lamps := spec.Lamps
 	if lamps == "" {
@@ -254,7 +263,7 @@ func (c *collector) lighting(k config.Kind) error {
 			// one period, from sunset or to sunrise: written in place
 			c.events = append(c.events, Event{})
 			e := &c.events[len(c.events)-1]
-			c.onePeriod(e, k, d, dl, short, lamps == config.LampsMorning, direct, &lim)
+			c.onePeriod(e, k, d, i, dl, short, lamps == config.LampsMorning, direct, &lim)
 			got, dropped := e.Lamp, time.Duration(0)
 			switch {
 			case got <= 0:
@@ -371,12 +380,12 @@ func (c *collector) lampPeriod(e *Event, k config.Kind, d time.Time, part string
 // dark around that light and than the limit of its side (earliest_on,
 // latest_off). The instants are compared as Unix nanoseconds, and the
 // period's moving end is made from the instant it is taken from.
-func (c *collector) onePeriod(e *Event, k config.Kind, d time.Time, dl *daylight, short time.Duration, morning, direct bool, lim *lampLimits) {
+func (c *collector) onePeriod(e *Event, k config.Kind, d time.Time, i int, dl *daylight, short time.Duration, morning, direct bool, lim *lampLimits) {
 	// fixed: the sunset the period starts at, or the sunrise it ends at;
 	// the other end lies dist away from it, on the side of sign
-	fixed, dark, sign, part, limited := dl.last, dl.duskTo, int64(1), partEvening, lim.hasOff
+	fixed, dark, sign, part, limited, table, clock := dl.last, dl.duskTo, int64(1), partEvening, lim.hasOff, lim.offAt, lim.off
 	if morning {
-		fixed, dark, sign, part, limited = dl.first, dl.dawnFrom, -1, partMorning, lim.hasOn
+		fixed, dark, sign, part, limited, table, clock = dl.first, dl.dawnFrom, -1, partMorning, lim.hasOn, lim.onAt, lim.on
 	}
 	fixedN := fixed.UnixNano()
 	dist, by := int64(short), 0 // by: the lamp time, the dark's bound, the limit
@@ -386,23 +395,30 @@ func (c *collector) onePeriod(e *Event, k config.Kind, d time.Time, dl *daylight
 		}
 	}
 	var limit time.Time
+	at := -1 // the index of the limit's date in dayStarts, when from table
 	if limited {
 		var n int64
-		if morning {
-			limit, n = c.onBefore(fixed, lim)
-		} else {
-			limit, n = c.offAfter(fixed, lim)
+		var ok bool
+		if n, at, ok = limitNear(table, lim.starts, i+1, fixedN, morning); !ok {
+			at = -1
+			if morning {
+				limit, n = c.onBefore(fixed, lim)
+			} else {
+				limit, n = c.offAfter(fixed, lim)
+			}
 		}
 		if n = sign * (n - fixedN); dist > n {
 			dist, by = n, 2
 		}
 	}
 	moving := limit
-	switch by {
-	case 0:
+	switch {
+	case by == 0:
 		moving = fixed.Add(time.Duration(sign) * short)
-	case 1:
+	case by == 1:
 		moving = dark
+	case at >= 0: // clockOnDay's instant, made only for a period it clips
+		moving = c.dayStarts()[at].Add(clock)
 	}
 	start, end := fixed, moving
 	if morning {
@@ -471,6 +487,59 @@ type lampLimits struct {
 	on, off       time.Duration
 	hasOn, hasOff bool
 	text          string // "lamps on no earlier than 05:30, off no later than 22:00"
+	// onAt and offAt are the limits' instants on the collector's dates
+	// (limitNanos), for the lamps of one period a date, and starts the
+	// dates' first instants, all as Unix nanoseconds; nil otherwise
+	onAt, offAt, starts []int64
+}
+
+// limitNanos returns the clock time's instant on each of the collector's
+// dates, indexed as dayStarts, as Unix nanoseconds, where clockOnDay makes
+// it from the date's first instant (the zone keeps one offset from a day
+// before that instant to two days after it), 0 on the other dates; and
+// the dates' first instants as Unix nanoseconds (startsN, made when nil).
+func (c *collector) limitNanos(clock time.Duration, startsN []int64) ([]int64, []int64) {
+	starts := c.dayStarts()
+	if startsN == nil {
+		startsN = make([]int64, len(starts))
+		for j := range starts {
+			startsN[j] = starts[j].UnixNano()
+		}
+	}
+	out := make([]int64, len(starts))
+	z := c.zone()
+	for j := range starts {
+		u := starts[j].Unix()
+		if z.at(u - secondsPerDay); z.to > u+2*secondsPerDay {
+			out[j] = startsN[j] + int64(clock)
+		}
+	}
+	return out, startsN
+}
+
+// limitNear is onBefore (morning) or offAfter for an instant (fixedN, as
+// Unix nanoseconds) on the date of index j in dayStarts, from the table of
+// the limit's instants and that of the dates' first instants (startsN,
+// see limitNanos): the limit's instant and the index of
+// its date; false when the table does not have them, or fixedN is not on
+// that date. Where the table has a date's limit, the zone keeps one offset
+// from a day before the date to two days after it, so that the instants
+// from the date's first to the next date's are that date's.
+func limitNear(table, startsN []int64, j int, fixedN int64, morning bool) (int64, int, bool) {
+	if j < 1 || j+1 >= len(table) || j+1 >= len(startsN) || table[j] == 0 || fixedN < startsN[j] || fixedN >= startsN[j+1] {
+		return 0, 0, false
+	}
+	at := j
+	switch {
+	case morning && table[j] >= fixedN:
+		at = j - 1 // the last one before: the date before's
+	case !morning && table[j] <= fixedN:
+		at = j + 1 // the first one after: the next date's
+	}
+	if table[at] == 0 {
+		return 0, 0, false
+	}
+	return table[at], at, true
 }
 
 func limitsOf(spec config.KindSpec) lampLimits {

@@ -424,6 +424,25 @@ func (kt *kindTimes) at(d time.Time) (time.Time, bool, error) {
 	return time.Time{}, false, nil
 }
 
+// after returns the first instant of the kind on the local date d that is
+// after t.
+func (kt *kindTimes) after(d, t time.Time) (time.Time, bool, error) {
+	if kt.sun == nil && kt.byDate == nil {
+		e, ok := kt.events[d]
+		return e.Start, ok && e.Start.After(t), nil
+	}
+	dc, err := kt.day(d)
+	if err != nil {
+		return time.Time{}, false, err
+	}
+	for _, x := range dc.xs {
+		if x.Direction == kt.dir && x.Time.After(t) {
+			return x.Time, true, nil
+		}
+	}
+	return time.Time{}, false, nil
+}
+
 // note returns the note of a date without the kind's event, when there is one.
 func (kt *kindTimes) note(d time.Time) (Note, bool) {
 	if kt.sun == nil && kt.byDate == nil {
@@ -705,10 +724,7 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 	b = append(b, skippedClock(*pl.start, start, z)...)
 	switch {
 	case pl.end != nil:
-		end, ok, err := w.planTime(*pl.end, d, times)
-		if err == nil && ok && !end.After(start) {
-			end, ok, err = w.planTime(*pl.end, d.AddDate(0, 0, 1), times)
-		}
+		end, ok, err := w.planEnd(*pl.end, d, start, times)
 		if err != nil {
 			return err
 		}
@@ -752,6 +768,32 @@ func (w *entryWriter) planTime(ts config.TimeSpec, d time.Time, times map[config
 		return time.Time{}, false, err
 	}
 	return t.Add(ts.Offset), true, nil
+}
+
+// planEnd is the end of a plan that starts at start on the local date d:
+// a clock time on d, or on the next date when it is not after start; the
+// first event of the end's kind, with its offset, after start, on d or on
+// the next date (of two dusks on d, the one after start; a dusk past
+// midnight, on the next date); false when neither date has one.
+func (w *entryWriter) planEnd(ts config.TimeSpec, d, start time.Time, times map[config.Kind]*kindTimes) (time.Time, bool, error) {
+	if ts.IsClock {
+		end, _, err := w.planTime(ts, d, times)
+		if err == nil && !end.After(start) {
+			end, _, err = w.planTime(ts, d.AddDate(0, 0, 1), times)
+		}
+		return end, err == nil, err
+	}
+	kt := times[ts.Event]
+	for _, day := range []time.Time{d, d.AddDate(0, 0, 1)} {
+		t, ok, err := kt.after(day, start.Add(-ts.Offset))
+		if err != nil {
+			return time.Time{}, false, err
+		}
+		if ok {
+			return t.Add(ts.Offset), true, nil
+		}
+	}
+	return time.Time{}, false, nil
 }
 
 // skippedClock says why a clock time of a plan is shown later than written:

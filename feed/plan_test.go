@@ -403,3 +403,75 @@ func TestPlanAnchorRoundedToMinute(t *testing.T) {
 		t.Errorf("no entries on %v", want)
 	}
 }
+
+// TestPlanEndFirstAfterStart: an event end is the first event of its kind
+// after the start, on the start's date or the next. Values from PyEphem
+// (tools/pyephem-checks/values.py, plan_ends_past_midnight; the Sun's
+// centre at −12°, −18° and −6°, at −0.8333° for the sunset).
+func TestPlanEndFirstAfterStart(t *testing.T) {
+	wren := site(t, "wren", 52.3, 0, "Europe/London")
+	isfjell := site(t, "isfjell", 78.92, 11.93, "Arctic/Longyearbyen")
+	walk := config.Plan{Title: "Dusk walk", Date: "every friday", Start: "nautical-dusk", End: "astronomical-dusk"}
+	watch := config.Plan{Title: "Fjord watch", Date: "every day", Start: "sunset", End: "civil-dusk"}
+	for _, c := range []struct {
+		name        string
+		s           *config.Site
+		first, last string
+		plan        config.Plan
+		date        string
+		start, end  string // UTC, PyEphem; end "" when there is none
+		nextDay     bool
+		text        string // in the description
+	}{
+		// 52.3° N, Friday 14 May 2027: nautical dusk 21:28:03.594 UT, the
+		// astronomical dusk after it 23:02:51.695 UT (00:02:52 BST, 15 May)
+		{"dusk past midnight", wren, "2027-05-14", "2027-05-14", walk, "2027-05-14",
+			"2027-05-14T21:28:03.594Z", "2027-05-14T23:02:51.695Z", true,
+			"to 00:02:52 BST (astronomical dusk) the next day (Sat 15 May)."},
+		// the same date alone in a month: its times found for it alone
+		{"dusk past midnight, found by date", wren, "2027-05-01", "2027-05-31",
+			config.Plan{Title: "Dusk walk", Date: "2027-05-14", Start: "nautical-dusk", End: "astronomical-dusk"}, "2027-05-14",
+			"2027-05-14T21:28:03.594Z", "2027-05-14T23:02:51.695Z", true, "the next day (Sat 15 May)."},
+		// 78.92° N, 10 September 2027: sunset 19:10:23.224 UT, civil dusk
+		// 22:12:47.295 UT (00:12:47 CEST on the 11th)
+		{"civil dusk past midnight", isfjell, "2027-09-10", "2027-09-12", watch, "2027-09-10",
+			"2027-09-10T19:10:23.224Z", "2027-09-10T22:12:47.295Z", true, "the next day (Sat 11 Sep)."},
+		// 11 September has two civil dusks, 00:12:47 and 23:46:29 CEST
+		// (21:46:29.433 UT): the one after the sunset of 19:01:08.424 UT
+		{"second dusk of the date", isfjell, "2027-09-10", "2027-09-12", watch, "2027-09-11",
+			"2027-09-11T19:01:08.424Z", "2027-09-11T21:46:29.433Z", false, "(civil dusk)."},
+		{"second dusk of the date, found by date", isfjell, "2027-09-01", "2027-09-30",
+			config.Plan{Title: "Fjord watch", Date: "2027-09-11", Start: "sunset", End: "civil-dusk"}, "2027-09-11",
+			"2027-09-11T19:01:08.424Z", "2027-09-11T21:46:29.433Z", false, "(civil dusk)."},
+		// 9 September: sunset at 21:19:49 CEST, then no civil dusk until
+		// 22:12:47 UT on the 10th, which is on the 11th in CEST
+		{"none that day or the next", isfjell, "2027-09-09", "2027-09-09", watch, "2027-09-09",
+			"2027-09-09T19:19:49Z", "", false, "; no civil dusk that day or the next to end it."},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			var e *Entry
+			for _, x := range planEntries(t, c.s, c.first, c.last, c.plan) {
+				if x.Date.Format(time.DateOnly) == c.date {
+					e = &x
+				}
+			}
+			if e == nil {
+				t.Fatalf("no entry on %s", c.date)
+			}
+			start, _ := time.Parse(time.RFC3339, c.start)
+			if !near(e.Start, start, 3*time.Second) {
+				t.Errorf("start %s, want %s (PyEphem)", e.Start.UTC(), start)
+			}
+			if c.end == "" {
+				if !e.End.IsZero() {
+					t.Errorf("end %s, want none", e.End.UTC())
+				}
+			} else if end, _ := time.Parse(time.RFC3339, c.end); !near(e.End, end, 3*time.Second) {
+				t.Errorf("end %s, want %s (PyEphem)", e.End.UTC(), end)
+			}
+			if e.Facts.NextDay != c.nextDay || !strings.Contains(e.Description, c.text) {
+				t.Errorf("next day %v, description\n%s\nwant %v and %q", e.Facts.NextDay, e.Description, c.nextDay, c.text)
+			}
+		})
+	}
+}

@@ -11,7 +11,8 @@ with this script's name beside each one (cmd/heliocal/readme_test.go
 TestReadmeDayAcrossMidnight; feed/change_test.go
 TestSummaryShowsSunsetAfterMidnight and TestProfilesDayLengthIsTheSummarys;
 astro/atmosphere_test.go TestRefractionScaling; cmd/heliocal/main_test.go
-TestEventsAzimuth).
+TestEventsAzimuth; feed/plan_test.go TestPlanEndFirstAfterStart,
+TestPlanMissingStartPastMidnight and TestPlanDateOnlyAnchor).
 
 Definitions, matched to heliocal's:
   * sunrise/sunset: the Sun's centre at -0.8333 deg (upper limb 16' plus 34'
@@ -153,9 +154,59 @@ def solstice_sunrise():
     print("sunrise %s, %s CEST to the second" % (iso(r), cest.strftime("%H:%M:%S")))
 
 
+def _crossings(lat, lon, h, start, hours):
+    """The Sun's setting crossings of altitude h (the centre, no refraction)
+    in the hours after start: sampled each minute, then bisected. PyEphem's
+    next_setting gives up on a night the Sun stays above h."""
+    o = observer(lat, lon, 0)
+    out, step = [], ephem.minute
+    prev = _alt(o, start)
+    for k in range(1, int(hours * 60) + 1):
+        t = ephem.Date(start + k * step)
+        cur = _alt(o, t)
+        if prev > h >= cur:
+            lo, hi = t - step, t
+            for _ in range(40):
+                mid = (lo + hi) / 2
+                if _alt(o, ephem.Date(mid)) > h:
+                    lo = mid
+                else:
+                    hi = mid
+            out.append(ephem.Date((lo + hi) / 2))
+        prev = cur
+    return out
+
+
+def plan_ends_past_midnight():
+    print("# plans: the first end event after the start (feed/plan_test.go TestPlanEndFirstAfterStart,")
+    print("# TestPlanMissingStartPastMidnight, TestPlanDateOnlyAnchor); twilights: the centre at -6/-12/-18 deg")
+    print("# 52.3 N, 0 E, sea level, BST (UT + 1 h): the evening of Friday 14 May 2027")
+    for name, h in (("nautical dusk", -12), ("astronomical dusk", -18)):
+        for t in _crossings(52.3, 0, h, ephem.Date("2027/5/14 12:00"), 18):
+            print("%s %s (BST %s)" % (name, iso(t), ephem.Date(t + HOUR)))
+    print("# 78.92 N, 11.93 E, sea level, CEST (UT + 2 h)")
+    for name, h, start, hours in (
+            ("sunset", -0.8333, "2027/9/9 22:00", 72), ("civil dusk", -6, "2027/9/9 22:00", 72),
+            ("sunset", -0.8333, "2027/4/13 22:00", 72)):
+        for t in _crossings(78.92, 11.93, h, ephem.Date(start), hours):
+            print("%s %s (CEST %s)" % (name, iso(t), ephem.Date(t + 2 * HOUR)))
+    print("# 78.92 N, 11.93 E: day length, sunrise to sunset, crossing 1 h (local dates, CET/CEST)")
+    for day, off in (("2027/2/16", 1), ("2027/2/17", 1), ("2027/2/18", 1), ("2027/2/19", 1),
+                     ("2027/10/23", 2), ("2027/10/24", 2), ("2027/10/25", 1), ("2027/10/26", 1)):
+        o = observer(78.92, 11.93, -0.8333)
+        o.date = ephem.Date(ephem.Date(day) - off * HOUR)  # local midnight
+        try:
+            rise = o.next_rising(SUN, use_center=True)
+            o.date = rise
+            sset = o.next_setting(SUN, use_center=True)
+            print("%s sunrise %s sunset %s day %s" % (day, iso(rise), iso(sset), fmt_len((sset - rise) * 86400)))
+        except ephem.NeverUpError:
+            print("%s the Sun does not rise: day 0" % day)
+
 if __name__ == "__main__":
     print("PyEphem %s (libastro)" % ephem.__version__)
     day_across_midnight()
     end_of_midnight_sun()
     refraction_scaled()
     solstice_sunrise()
+    plan_ends_past_midnight()

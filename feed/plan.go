@@ -59,6 +59,7 @@ type planDate struct {
 	anchored bool
 	kind     config.Kind
 	at       time.Time
+	dir      astro.Direction // a photoperiod's: rising past its day length or falling below
 	// also are the other events of the rule that fall to the same date
 	// ("saturday after moon-phases": a first quarter on a Saturday and the
 	// full moon on the Friday after), in the order of their instants
@@ -69,6 +70,7 @@ type planDate struct {
 type planAnchor struct {
 	kind config.Kind
 	at   time.Time
+	dir  astro.Direction
 }
 
 // feedEntries computes the entries of a feed's kinds and plans on the local
@@ -526,6 +528,7 @@ func (sky *Sky) planDates(ctx context.Context, p Place, r config.DateRule, first
 	type anchor struct {
 		kind    config.Kind
 		at, day time.Time
+		dir     astro.Direction
 	}
 	var evs []anchor
 	if _, phase := phaseKinds[r.Event.Name]; phase || r.Event.Name == "moon-phases" {
@@ -544,7 +547,7 @@ func (sky *Sky) planDates(ctx context.Context, p Place, r config.DateRule, first
 		for _, ph := range ps {
 			if name := phaseNames[ph.Kind]; r.Event.Name == name || r.Event.Name == "moon-phases" {
 				if d := z.date(ph.Time); c.inRange(d) {
-					evs = append(evs, anchor{config.Kind{Name: name}, ph.Time, d})
+					evs = append(evs, anchor{kind: config.Kind{Name: name}, at: ph.Time, day: d})
 				}
 			}
 		}
@@ -554,7 +557,7 @@ func (sky *Sky) planDates(ctx context.Context, p Place, r config.DateRule, first
 		}
 		evs = make([]anchor, len(c.events))
 		for i, e := range c.events {
-			evs[i] = anchor{e.Kind, e.Start, e.Date}
+			evs[i] = anchor{e.Kind, e.Start, e.Date, e.Direction}
 		}
 	}
 	slices.SortStableFunc(evs, func(a, b anchor) int { return a.at.Compare(b.at) })
@@ -576,10 +579,10 @@ func (sky *Sky) planDates(ctx context.Context, p Place, r config.DateRule, first
 		}
 		i := daysBetween(first, d)
 		if j := listed[i]; j > 0 {
-			out[j-1].also = append(out[j-1].also, planAnchor{e.kind, e.at})
+			out[j-1].also = append(out[j-1].also, planAnchor{e.kind, e.at, e.dir})
 			continue
 		}
-		out = append(out, planDate{date: d, anchored: true, kind: e.kind, at: e.at})
+		out = append(out, planDate{date: d, anchored: true, kind: e.kind, at: e.at, dir: e.dir})
 		listed[i] = len(out)
 	}
 	return out, nil
@@ -668,11 +671,19 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 	from := len(w.text)
 	b := append(w.text, pt.lead...)
 	if pd.anchored {
-		b = append(append(append(append(b, "Date: "...), pt.rule...), " ("...), pt.anchorName(pd.kind)...)
-		b = z.appendStamp(append(b, ' '), ToMinute(pd.at)) // to the minute: rounded, as every output
+		b = append(append(append(b, "Date: "...), pt.rule...), " ("...)
+		anchor := func(b []byte, a planAnchor) []byte {
+			if a.kind.Name == config.KindPhotoperiod {
+				// a date without a time (at is its first instant): the
+				// rule names the day length
+				return a.at.In(z.loc).AppendFormat(append(b, photoperiodWay(a.dir)...), "Mon 2 Jan 2006")
+			}
+			b = append(b, pt.anchorName(a.kind)...)
+			return z.appendStamp(append(b, ' '), ToMinute(a.at)) // to the minute: rounded, as every output
+		}
+		b = anchor(b, planAnchor{pd.kind, pd.at, pd.dir})
 		for _, a := range pd.also {
-			b = append(append(b, "; "...), pt.anchorName(a.kind)...)
-			b = z.appendStamp(append(b, ' '), ToMinute(a.at))
+			b = anchor(append(b, "; "...), a)
 		}
 		b = append(b, ").\n"...)
 	}
@@ -870,9 +881,21 @@ func ruleText(r config.DateRule) string {
 	case config.RuleWeekdayOf:
 		return fmt.Sprintf("the %s %s %s", r.Weekday, r.Relation, ev)
 	case config.RuleEvent:
+		if r.Event.Name == config.KindPhotoperiod {
+			return "the date the day length crosses " + amount(r.Event.DayLength)
+		}
 		return "the date of " + ev
 	}
 	return ""
+}
+
+// photoperiodWay is the way a photoperiod's day length crosses it, before
+// the date: "rising past it on ".
+func photoperiodWay(dir astro.Direction) string {
+	if dir == astro.Rising {
+		return "rising past it on "
+	}
+	return "falling below it on "
 }
 
 // moonPhases returns the Moon's phases over the Sky's dates, found once.

@@ -475,3 +475,36 @@ func TestPlanEndFirstAfterStart(t *testing.T) {
 		})
 	}
 }
+
+// TestPlanDateOnlyAnchor: a photoperiod crossing has a date and no time.
+// At 78.92° N, 11.93° E the Sun does not rise on 17 February 2027 and is
+// up 1 h 46 min 38 s on the 18th; it is up 1 h 18 min 35 s on 24 October
+// and does not rise on the 25th (PyEphem, tools/pyephem-checks/values.py).
+func TestPlanDateOnlyAnchor(t *testing.T) {
+	s := site(t, "isfjell", 78.92, 11.93, "Arctic/Longyearbyen")
+	es := planEntries(t, s, "2027-01-01", "2027-12-31",
+		config.Plan{Title: "Dayfold talk", Date: "photoperiod:1h", Start: "20:00"},
+		config.Plan{Title: "Dayfold fair", Date: "saturday nearest photoperiod:1h"})
+	want := map[string]string{
+		"Dayfold talk 2027-02-18": "Date: the date the day length crosses 1 h (rising past it on Thu 18 Feb 2027).\n",
+		"Dayfold talk 2027-10-25": "Date: the date the day length crosses 1 h (falling below it on Mon 25 Oct 2027).\n",
+		// 20 February 2027 is a Saturday, 23 October too (Gregorian calendar)
+		"Dayfold fair 2027-02-20": "Date: the Saturday nearest the day length crossing 1 h (rising past it on Thu 18 Feb 2027).\n",
+		"Dayfold fair 2027-10-23": "Date: the Saturday nearest the day length crossing 1 h (falling below it on Mon 25 Oct 2027).\n",
+	}
+	for _, e := range es {
+		k := e.Title + " " + e.Date.Format(time.DateOnly)
+		w, ok := want[k]
+		if !ok {
+			t.Errorf("unexpected entry %s", k)
+			continue
+		}
+		if !strings.HasPrefix(e.Description, w) {
+			t.Errorf("%s: description\n%s\nwant it to begin %q", k, e.Description, w)
+		}
+		delete(want, k)
+	}
+	if len(want) > 0 {
+		t.Errorf("no entries %v", want)
+	}
+}

@@ -445,6 +445,21 @@ func (kt *kindTimes) after(d, t time.Time) (time.Time, bool, error) {
 	return time.Time{}, false, nil
 }
 
+// slid returns the Sun's event of the kind on the date after d when d has
+// none but crosses the altitude the other way: the event comes later each
+// day and has moved past midnight, from the evening before d to the
+// morning after (a sunset near midnight in spring). It is false for the
+// other kinds and dates.
+func (kt *kindTimes) slid(d time.Time) (time.Time, bool, error) {
+	if kt.sun == nil && kt.byDate == nil {
+		return time.Time{}, false, nil
+	}
+	if dc, err := kt.day(d); err != nil || len(dc.xs) == 0 {
+		return time.Time{}, false, err
+	}
+	return kt.at(d.AddDate(0, 0, 1))
+}
+
 // note returns the note of a date without the kind's event, when there is one.
 func (kt *kindTimes) note(d time.Time) (Note, bool) {
 	if kt.sun == nil && kt.byDate == nil {
@@ -727,6 +742,11 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 				t = string(t[0]+'a'-'A') + t[1:]
 			}
 			b = append(append(append(b, " ("...), t...), ')')
+		} else if t, ok, err := times[pl.start.Event].slid(d); err != nil {
+			return err
+		} else if ok {
+			b = z.appendClock(append(b, " (it has moved past midnight, to "...), t)
+			b = append(z.date(t).AppendFormat(append(b, " on "...), "Monday 2 January"), ')')
 		}
 		return done(append(b, '.'))
 	}

@@ -476,6 +476,31 @@ func TestPlanEndFirstAfterStart(t *testing.T) {
 	}
 }
 
+// TestPlanMissingStartPastMidnight: at 78.92° N, 11.93° E the sunset comes
+// later each day in April until it passes midnight: 23:51:28 CEST on
+// 14 April, then 00:17:31 CEST on the 16th (PyEphem,
+// tools/pyephem-checks/values.py: 21:51:28.353 and 22:17:31.223 UT), so
+// 15 April has none and its note says where it went.
+func TestPlanMissingStartPastMidnight(t *testing.T) {
+	s := site(t, "isfjell", 78.92, 11.93, "Arctic/Longyearbyen")
+	for _, w := range [][2]string{{"2027-04-14", "2027-04-16"}, {"2027-04-01", "2027-04-30"}} {
+		p := config.Plan{Title: "Fjord watch", Date: "every day", Start: "sunset", End: "civil-dusk"}
+		if w[1] == "2027-04-30" {
+			p.Date = "2027-04-15" // found by date
+		}
+		var e *Entry
+		for _, x := range planEntries(t, s, w[0], w[1], p) {
+			if x.Date.Format(time.DateOnly) == "2027-04-15" {
+				e = &x
+			}
+		}
+		want := "does not happen on Thursday 15 April 2027 (it has moved past midnight, to 00:17:31 CEST on Friday 16 April)."
+		if e == nil || !e.AllDay || !strings.HasSuffix(e.Description, want) {
+			t.Errorf("%v: %+v, want an all-day note ending %q", w, e, want)
+		}
+	}
+}
+
 // TestPlanDateOnlyAnchor: a photoperiod crossing has a date and no time.
 // At 78.92° N, 11.93° E the Sun does not rise on 17 February 2027 and is
 // up 1 h 46 min 38 s on the 18th; it is up 1 h 18 min 35 s on 24 October

@@ -236,7 +236,7 @@ func (c *collector) lighting(k config.Kind) error {
 			lim.onAt, lim.starts = c.limitNanos(lim.on, lim.starts)
 		}
 	}
-	minLen := spec.MinDuration.D()
+	minLen := lampMinimum(spec.MinDuration.D())
 	lamps := spec.Lamps
 	if lamps == "" {
 		lamps = config.LampsEvening
@@ -431,12 +431,26 @@ func (c *collector) onePeriod(e *Event, k config.Kind, d time.Time, i int, dl *d
 	e.Clipped, e.Lamp = by == 2, time.Duration(dist)
 }
 
+// shortestLamps is the shortest lamp period scheduled whatever the
+// kind's min_duration: a period under a minute is not worth switching the
+// lamps on for (its title would read "Lamps on 06:55–06:55"), and is left
+// out as one under min_duration is.
+const shortestLamps = time.Minute
+
+// lampMinimum is the shortest lamp period scheduled for a kind of
+// min_duration d: d, and never under shortestLamps.
+func lampMinimum(d time.Duration) time.Duration { return max(d, shortestLamps) }
+
 // unscheduled notes a date that needs short of lamps none of which are
 // scheduled, and why: dropped is the lamp time left out for being under
 // the minimum minLen.
 func (c *collector) unscheduled(k config.Kind, d time.Time, length, short, dropped, minLen time.Duration, lim *lampLimits) {
 	why := "under the " + amount(minLen) + " minimum"
 	switch {
+	case dropped > 0 && minLen <= shortestLamps && short < shortestLamps:
+		why = "too short to switch the lamps on"
+	case dropped > 0 && minLen <= shortestLamps:
+		why = "the time left is under 1 min, too short to switch the lamps on"
 	case dropped == 0 && lim.text == "":
 		why = "the Sun is up again before they could come on"
 	case dropped == 0:
@@ -460,9 +474,12 @@ func (c *collector) bothPeriods(short, minLen time.Duration, morning, evening fu
 		m = morning(short - e.Lamp) // the evening is cut: the morning makes it up
 	}
 	why := "clipped"
+	var dropped time.Duration // the period under minLen, left out
 	if minLen > 0 && m.Lamp > 0 && m.Lamp < minLen {
+		dropped = m.Lamp
 		m, e, why = Event{}, evening(short), "minimum"
 	} else if minLen > 0 && e.Lamp > 0 && e.Lamp < minLen {
+		dropped = e.Lamp
 		e, m, why = Event{}, morning(short), "minimum"
 	}
 	// a period cut short without a limit is cut by the Sun's light
@@ -473,10 +490,10 @@ func (c *collector) bothPeriods(short, minLen time.Duration, morning, evening fu
 		return "dark"
 	}
 	if x := m.Lamp - half; x > 0 {
-		m.MadeUp, m.MadeUpWhy = x, whyFor(e)
+		m.MadeUp, m.MadeUpWhy, m.Dropped = x, whyFor(e), dropped
 	}
 	if x := e.Lamp - (short - half); x > 0 {
-		e.MadeUp, e.MadeUpWhy = x, whyFor(m)
+		e.MadeUp, e.MadeUpWhy, e.Dropped = x, whyFor(m), dropped
 	}
 	return m, e
 }
@@ -741,7 +758,7 @@ func (w *entryWriter) lightingText(spec *config.KindSpec) *lightingText {
 	if spec.LatestOff != "" {
 		lt.offLimit = limitsOf(config.KindSpec{LatestOff: spec.LatestOff}).text
 	}
-	lt.minimum = amount(spec.MinDuration.D())
+	lt.minimum = amount(lampMinimum(spec.MinDuration.D()))
 	for i, part := range []string{partMorning, partEvening, partPolarNight} {
 		lt.clippedShort[i] = "Clipped (" + lt.partLimit(part) + "): the target is not reached today.\n"
 		lt.clippedMade[i] = "Clipped (" + lt.partLimit(part) + "); the " + otherPart(part) + " lamps make up the difference: the target is reached.\n"
@@ -859,8 +876,10 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		b = append(b, lt.clippedShort[2]...)
 	case whole && e.Clipped:
 		b = append(append(append(b, "Moved within the limits ("...), lt.limits...), "): the target is reached.\n"...)
+	case e.MadeUp > 0 && e.MadeUpWhy == "minimum" && e.Dropped < shortestLamps:
+		b = append(append(append(b, "All of the shortfall in one period: the "...), other...), " period would be under 1 min.\n"...)
 	case e.MadeUp > 0 && e.MadeUpWhy == "minimum":
-		b = append(appendHM(append(b, "All of the shortfall in one period: the "...), e.MadeUp), " "...)
+		b = append(appendHM(append(b, "All of the shortfall in one period: the "...), e.Dropped), " "...)
 		b = append(append(append(append(b, other...), " period would be under the minimum of "...), lt.minimum...), ".\n"...)
 	case e.MadeUp > 0 && e.MadeUpWhy == "dark":
 		b = appendHM(b, e.MadeUp)
@@ -937,7 +956,7 @@ func describeLightingNote(s *siteInfo, n Note, last time.Time) (string, string) 
 	target := amount(n.Kind.DayLength)
 	if n.Lamp > 0 {
 		need := hm(n.Lamp)
-		if n.Lamp < 30*time.Second {
+		if n.Lamp < time.Minute { // not "1 min needed" for 42 s
 			need = "less than 1 min"
 		}
 		title := "Lamps not scheduled: " + need + " needed, " + n.Why

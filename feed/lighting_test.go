@@ -221,7 +221,10 @@ func TestLightingEntries(t *testing.T) {
 	}
 	// lighting:14h over April..September: lamps until the day reaches 14 h,
 	// one note for the long days, lamps again once it falls below; the
-	// stretch is the one photoperiod:14h marks.
+	// stretch is the one photoperiod:14h marks. The date before it (21
+	// April, a day of 13 h 59 min 06.2 s, PyEphem 4.1.4,
+	// tools/pyephem-checks/values.py lamp_periods) needs lamps for under a minute: a note says none
+	// are scheduled, and the date counts among those that need lamps.
 	spec = lightingSpec(t, "lighting:14h", nil)
 	es, err = sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date("2027-04-01"), date("2027-09-30"))
 	if err != nil {
@@ -230,9 +233,15 @@ func TestLightingEntries(t *testing.T) {
 	var notes []Entry
 	lamps := 0
 	for _, e := range es {
-		if e.Facts.Note {
+		switch {
+		case e.Facts.Note && e.Facts.Short:
+			if e.Title != "Lamps not scheduled: less than 1 min needed, too short to switch the lamps on" {
+				t.Errorf("%s: %q, want a note for a period under a minute", e.Date.Format(time.DateOnly), e.Title)
+			}
+			lamps++
+		case e.Facts.Note:
 			notes = append(notes, e)
-		} else {
+		default:
 			lamps++
 		}
 	}
@@ -695,6 +704,68 @@ func TestLightingMeaningOncePerCalendar(t *testing.T) {
 		if strings.Contains(cal.Description, civilLightMeaning) || strings.Contains(cal.Description, lightingAdvice) != lit ||
 			strings.Contains(cal.Description, "Supplemental lighting") != lit {
 			t.Errorf("%s: calendar description\n%s", kinds[0].Kind, cal.Description)
+		}
+	}
+}
+
+// TestLightingMinimumNamesTheDroppedPeriod checks the sentence of a period
+// that takes all of a date's shortfall because the other would be under
+// min_duration: it gives the length of that other period, what the limit
+// left of it, not what its partner took over. lighting:14h, lamps: both,
+// natural: civil, earliest_on 07:00, latest_off 21:00, min_duration 20m at
+// 78.92° N, 11.93° E (Arctic/Longyearbyen). Civil dawn and dusk, PyEphem
+// 4.1.4 (tools/pyephem-checks/values.py, lamp_periods): 27 February 2027
+// 06:12:31.2 and 16:40:55.0 UT (07:12:31 and 17:40:55 CET), so the
+// morning period left after 07:00 is 12 min 31 s ("13 min"); 9 October
+// 2027 civil dawn 05:00:57.6 UT (07:00:58 CEST), a morning period of 58 s.
+func TestLightingMinimumNamesTheDroppedPeriod(t *testing.T) {
+	s := site(t, "polar-shed", 78.92, 11.93, "Arctic/Longyearbyen")
+	sk := sky(t, "2027-01-01", "2027-12-31")
+	spec := lightingSpec(t, "lighting:14h", func(ks *config.KindSpec) {
+		ks.Lamps, ks.Natural, ks.EarliestOn, ks.LatestOff = config.LampsBoth, config.NaturalCivil, "07:00", "21:00"
+		ks.MinDuration = config.Duration(20 * time.Minute)
+	})
+	for _, tc := range []struct{ date, start, sentence string }{
+		{"2027-02-27", "17:40:55", "All of the shortfall in one period: the 13 min morning period would be under the minimum of 20 min.\n"},
+		{"2027-10-09", "18:54:26", "All of the shortfall in one period: the morning period would be under 1 min.\n"},
+	} {
+		es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date(tc.date), date(tc.date))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(es) != 1 || es[0].Facts.Part != partEvening {
+			t.Fatalf("%s: %d entries, want one evening period", tc.date, len(es))
+		}
+		d := es[0].Description
+		if !strings.Contains(d, "Evening lamps on at "+tc.start) || !strings.Contains(d, tc.sentence) {
+			t.Errorf("%s: %q\nwant the evening from civil dusk %s and %q", tc.date, d, tc.start, tc.sentence)
+		}
+	}
+}
+
+// TestLightingUnderAMinute checks that a lamp period under a minute is
+// not scheduled, whatever min_duration, and that the date gets the note of
+// a period under the minimum. lighting:14h at 35° S, 144.96° E
+// (Australia/Melbourne) on 26 January 2027: sunrise 19:32:39.3 UT on the
+// 25th, sunset 09:31:56.2 UT, a day of 13 h 59 min 16.9 s, 43 s short of
+// 14 h (PyEphem 4.1.4, tools/pyephem-checks/values.py, lamp_periods);
+// with lamps: both the two halves of 21 and 22 s are each under a minute.
+// Without the rule the entry read "Lamps on 20:32–20:32 (under 1 min, …)".
+func TestLightingUnderAMinute(t *testing.T) {
+	s := site(t, "river-bend", -35.0, 144.96, "Australia/Melbourne")
+	sk := sky(t, "2027-01-01", "2027-12-31")
+	for _, lamps := range []string{"", config.LampsMorning, config.LampsBoth} {
+		spec := lightingSpec(t, "lighting:14h", func(ks *config.KindSpec) { ks.Lamps = lamps })
+		es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date("2027-01-26"), date("2027-01-26"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		const want = "Lamps not scheduled: less than 1 min needed, too short to switch the lamps on"
+		if len(es) != 1 || !es[0].Facts.Note || es[0].Title != want {
+			for _, e := range es {
+				t.Logf("%s", e.Title)
+			}
+			t.Errorf("lamps %q: %d entries, want one note %q", lamps, len(es), want)
 		}
 	}
 }

@@ -46,6 +46,7 @@ type Event struct {
 	Clipped      bool          // lighting: this period was cut by latest_off/earliest_on
 	MadeUp       time.Duration // lighting, lamps both: how much longer than its half this period is
 	MadeUpWhy    string        // "clipped": the other period was cut; "minimum": it was under min_duration
+	Dropped      time.Duration // lighting, lamps both, MadeUpWhy "minimum": the length of the other period, left out
 	// Eclipses: the local circumstances (one of the two is set).
 	Solar *astro.LocalSolarEclipse
 	Lunar *astro.LocalLunarEclipse

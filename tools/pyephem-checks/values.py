@@ -12,7 +12,8 @@ TestReadmeDayAcrossMidnight; feed/change_test.go
 TestSummaryShowsSunsetAfterMidnight and TestProfilesDayLengthIsTheSummarys;
 astro/atmosphere_test.go TestRefractionScaling; cmd/heliocal/main_test.go
 TestEventsAzimuth; feed/plan_test.go TestPlanEndFirstAfterStart,
-TestPlanMissingStartPastMidnight and TestPlanDateOnlyAnchor).
+TestPlanMissingStartPastMidnight and TestPlanDateOnlyAnchor; feed/lighting_test.go
+TestLightingMinimumNamesTheDroppedPeriod, TestLightingUnderAMinute and TestLightingEntries).
 
 Definitions, matched to heliocal's:
   * sunrise/sunset: the Sun's centre at -0.8333 deg (upper limb 16' plus 34'
@@ -203,6 +204,24 @@ def plan_ends_past_midnight():
         except ephem.NeverUpError:
             print("%s the Sun does not rise: day 0" % day)
 
+
+def lamp_periods():
+    print("# lamp periods: civil dawn and dusk (centre at -6 deg) and sunrise and sunset, UT")
+    for name, lat, lon, h, start in (
+            ("78.92 N, 11.93 E, civil, 2027-02-27 (CET = UT + 1 h)", 78.92, 11.93, -6, "2027/2/26 23:00"),
+            ("78.92 N, 11.93 E, civil, 2027-10-09 (CEST = UT + 2 h)", 78.92, 11.93, -6, "2027/10/8 22:00"),
+            ("35 S, 144.96 E, 2027-01-26 (AEDT = UT + 11 h)", -35.0, 144.96, -0.8333, "2027/1/25 13:00"),
+            ("48.2 N, 16.4 E, 2027-04-21 (CEST = UT + 2 h)", 48.2, 16.4, -0.8333, "2027/4/20 22:00")):
+        o = observer(lat, lon, h)
+        o.date = start
+        r = o.next_rising(SUN, use_center=True)
+        o.date = r
+        s = o.next_setting(SUN, use_center=True)
+        length = (s - r) * 86400
+        print("%s: rise %s set %s day %.1f s = %s, %.1f s short of 14 h" % (
+            name, iso(r), iso(s), length, fmt_len(length), 14 * 3600 - length))
+
+
 if __name__ == "__main__":
     print("PyEphem %s (libastro)" % ephem.__version__)
     day_across_midnight()
@@ -210,3 +229,4 @@ if __name__ == "__main__":
     refraction_scaled()
     solstice_sunrise()
     plan_ends_past_midnight()
+    lamp_periods()

@@ -821,7 +821,7 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		last--
 	}
 	if s.zone.dayOf(last) != e.Date.Unix()/secondsPerDay {
-		t = append(t, " (+1 day)"...)
+		t = append(t, " +1 day"...) // as the end of a night (appendDays), in one bracket with the length
 	}
 	t = append(t, ' ', '(')
 	lamp := len(t)

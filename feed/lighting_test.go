@@ -769,3 +769,24 @@ func TestLightingUnderAMinute(t *testing.T) {
 		}
 	}
 }
+
+// TestLightingTitleAfterMidnight checks the title of a lamp period that
+// ends after midnight: the mark of the next date comes after the end's
+// clock, as a night's end is marked, and the one bracket holds the
+// length. USNO table for Ithaca, NY, 1 January 2015 (rows sun-0001 and
+// sun-0002: sunrise 08:36, sunset 17:44, UTC−4): lighting:16h in the
+// evening runs from sunset to 00:36 the next date, 6 h 52 min; each
+// table time is rounded to the minute.
+func TestLightingTitleAfterMidnight(t *testing.T) {
+	_, _, s := ithacaDay(t, "2015-01-01")
+	sk := sky(t, "2015-01-01", "2015-12-31")
+	spec := lightingSpec(t, "lighting:16h", nil)
+	es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date("2015-01-01"), date("2015-01-01"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	re := regexp.MustCompile(`^Lamps on 17:4[3-5]–00:3[5-7] \+1 day \(6 h 5[1-3] min, to reach 16 h\)$`)
+	if len(es) != 1 || !re.MatchString(es[0].Title) {
+		t.Fatalf("%d entries, first %q; want %s", len(es), es[0].Title, re)
+	}
+}

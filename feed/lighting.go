@@ -677,6 +677,9 @@ func shownAt(t time.Time, z *zoneCache) shownClock {
 	return shownClock{h: s / 3600, m: s / 60 % 60, s: s % 60, hm: mins / 60, mm: mins % 60, zone: zone}
 }
 
+// second is the clock to the second as seconds since midnight.
+func (c shownClock) second() int { return c.h*3600 + c.m*60 + c.s }
+
 // daySeconds is the time of day, in seconds, of a count of seconds since
 // 1970-01-01 00:00 on some clock.
 func daySeconds(u int64) int {
@@ -720,6 +723,10 @@ type lightingText struct {
 	// the limit that clips a morning period (earliest_on) and an evening
 	// one (latest_off), as limits writes it; "" when the kind has none
 	onLimit, offLimit string
+	// the limits' clock times (time since midnight), and as seconds of
+	// the day; -1 when the kind has none
+	on, off       time.Duration
+	onSec, offSec int
 	// the end of the description of a morning (0) or evening (1) period
 	// that makes up for no other, after the natural day's length, by
 	// whether it is clipped and short: the goal and the period's last
@@ -751,7 +758,15 @@ func (w *entryWriter) lightingText(spec *config.KindSpec) *lightingText {
 		reached: ", to reach " + target + ")", notReached: "; " + target + " not reached)",
 		open: ").\n" + natural, centred: "), centred on solar noon.\n" + natural,
 		near: "), as near solar noon as the limits allow.\n" + natural}
-	lt.limits = limitsOf(*spec).text
+	lim := limitsOf(*spec)
+	lt.limits = lim.text
+	lt.on, lt.off, lt.onSec, lt.offSec = lim.on, lim.off, -1, -1
+	if lim.hasOn {
+		lt.onSec = int(lim.on / time.Second)
+	}
+	if lim.hasOff {
+		lt.offSec = int(lim.off / time.Second)
+	}
 	if spec.EarliestOn != "" {
 		lt.onLimit = limitsOf(config.KindSpec{EarliestOn: spec.EarliestOn}).text
 	}
@@ -840,10 +855,20 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		b := append(dst, lt.lead[pi]...)
 		b = append(b, byte('0'+on.h/10), byte('0'+on.h%10), ':', byte('0'+on.m/10), byte('0'+on.m%10), ':', byte('0'+on.s/10), byte('0'+on.s%10), ' ')
 		b = append(b, on.zone...)
+		if e.Clipped && pi == 0 && on.second() != lt.onSec {
+			if m := movedLimit(s.zone, e.Start, lt.on); m != "" {
+				b = append(append(append(b, " ("...), m...), ')')
+			}
+		}
 		b = append(b, ',', ' ', 'o', 'f', 'f', ' ', 'a', 't', ' ',
 			byte('0'+off.h/10), byte('0'+off.h%10), ':', byte('0'+off.m/10), byte('0'+off.m%10), ':', byte('0'+off.s/10), byte('0'+off.s%10), ' ')
-		b = append(b, off.zone...)
-		b = append(append(append(b, ' ', '('), lampHM...), lt.open...)
+		b = append(append(append(b, off.zone...), ' ', '('), lampHM...)
+		if e.Clipped && pi == 1 && off.second() != lt.offSec {
+			if m := movedLimit(s.zone, e.End, lt.off); m != "" {
+				b = append(append(b, "; off "...), m...)
+			}
+		}
+		b = append(b, lt.open...)
 		return append(appendHM(b, e.DayLength), lt.tail[pi][b2i(e.Clipped)][b2i(e.Short)]...), t
 	}
 	whole := e.Part == partPolarNight || e.Part == partBehindSkyline // one period round solar noon
@@ -859,8 +884,18 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		b = append(b, "Evening lamps on at "...)
 	}
 	b = on.appendSecond(b)
+	if e.Clipped && e.Part != partEvening && lt.onSec >= 0 && on.second() != lt.onSec {
+		if m := movedLimit(s.zone, e.Start, lt.on); m != "" {
+			b = append(append(append(b, " ("...), m...), ')')
+		}
+	}
 	b = off.appendSecond(append(b, ", off at "...))
 	b = append(append(b, " ("...), lampHM...)
+	if e.Clipped && e.Part != partMorning && lt.offSec >= 0 && off.second() != lt.offSec {
+		if m := movedLimit(s.zone, e.End, lt.off); m != "" {
+			b = append(append(b, "; "...), m...)
+		}
+	}
 	switch {
 	case whole && e.Clipped:
 		b = append(b, lt.near...)
@@ -899,6 +934,24 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		b = append(b, "The target is not reached today.\n"...)
 	}
 	return b[:len(b)-1], t // without the last line's newline
+}
+
+// movedLimit says why a lamp period's end at t, clipped by the limit
+// clock, shows another clock time: the local clock skips the limit on that
+// date (clocks set forward), so the lamps come on or go off that much
+// later. The words are a plan's (skippedClock) without their brackets:
+// "moved from 00:30, which the clocks skip on Sun 28 Mar 2027: the clocks
+// go forward for summer time by 1 h". It is "" when t is not the limit's
+// instant on its date.
+func movedLimit(z *zoneCache, t time.Time, clock time.Duration) string {
+	if !clockOn(z.date(t), clock, z.loc).Equal(t) {
+		return ""
+	}
+	m := skippedClock(config.TimeSpec{IsClock: true, Clock: clock}, t, z)
+	if len(m) < 3 {
+		return ""
+	}
+	return m[2 : len(m)-1] // " (moved from …)"
 }
 
 // partLimit is the limit that clips a period of lamps of the part (clip:

@@ -790,3 +790,46 @@ func TestLightingTitleAfterMidnight(t *testing.T) {
 		t.Fatalf("%d entries, first %q; want %s", len(es), es[0].Title, re)
 	}
 }
+
+// TestLightingLimitSkippedByTheClocks checks a lamp limit that the clocks
+// skip: in Asia/Beirut the clocks go from 00:00 to 01:00 on Sunday 28 March
+// 2027 (IANA tz database, Lebanon: the last Sunday of March at 0:00), so
+// earliest_on (latest_off) 00:30 clips the lamps at 01:30 EEST, 22:30 UT
+// on the 27th, and the text says why, in the words of a plan's moved time.
+// The targets (20 h, 21 h) are far from any natural day at 33.9° N, so
+// both periods are clipped whatever the sunrise and sunset.
+func TestLightingLimitSkippedByTheClocks(t *testing.T) {
+	s := site(t, "cedar-room", 33.89, 35.50, "Asia/Beirut")
+	sk := sky(t, "2027-01-01", "2027-12-31")
+	at := time.Date(2027, 3, 27, 22, 30, 0, 0, time.UTC)
+	const moved = "moved from 00:30, which the clocks skip on Sun 28 Mar 2027: the clocks go forward for summer time by 1 h"
+	for _, tc := range []struct {
+		kind, lamps, on, off, date, want string
+	}{
+		{"lighting:20h", config.LampsMorning, "00:30", "", "2027-03-28", "Morning lamps on at 01:30:00 EEST (" + moved + "), off at "},
+		{"lighting:21h", "", "", "00:30", "2027-03-27", " min; off " + moved + ").\n"},
+	} {
+		spec := lightingSpec(t, tc.kind, func(ks *config.KindSpec) { ks.Lamps, ks.EarliestOn, ks.LatestOff = tc.lamps, tc.on, tc.off })
+		es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date(tc.date), date(tc.date))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(es) != 1 || !es[0].Facts.Short {
+			t.Fatalf("%s: %d entries, want one clipped period", tc.kind, len(es))
+		}
+		e := es[0]
+		if (tc.on != "" && !e.Start.Equal(at)) || (tc.off != "" && (!e.End.Equal(at) || !strings.Contains(e.Description, ", off at 01:30:00 EEST ("))) ||
+			!strings.Contains(e.Description, tc.want) {
+			t.Errorf("%s: %s–%s %q\nwant the limit at %s and %q", tc.kind, e.Start, e.End, e.Description, at, tc.want)
+		}
+	}
+	// the date after, 00:30 is on the clock again: no such words
+	spec := lightingSpec(t, "lighting:20h", func(ks *config.KindSpec) { ks.Lamps, ks.EarliestOn = config.LampsMorning, "00:30" })
+	es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date("2027-03-29"), date("2027-03-29"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(es) != 1 || strings.Contains(es[0].Description, "moved") || !strings.HasPrefix(es[0].Description, "Morning lamps on at 00:30:00 EEST, off at ") {
+		t.Errorf("29 March: %+v", es)
+	}
+}

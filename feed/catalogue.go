@@ -1046,8 +1046,10 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 		// "<title>: <clock>.\n" before the event's own description
 		title = offsetTitle(offset, title)
 		w.scratch = append(w.scratch[:0], w.text[from:]...)
-		w.text = z.appendClock(append(append(w.text[:from], title...), ": "...), e.Start.Add(offset))
-		w.text = append(append(w.text, ".\n"...), w.scratch...)
+		at := e.Start.Add(offset)
+		w.text = z.appendClock(append(append(w.text[:from], title...), ": "...), at)
+		w.text = append(appendOtherDay(w.text, z.date(time.Unix(UnixSecond(at), 0)), e.Date), ".\n"...) // the date of the clock as shown
+		w.text = append(w.text, w.scratch...)
 	}
 	if spec.Label != "" {
 		title = spec.Label

@@ -322,6 +322,42 @@ func TestKindOptions(t *testing.T) {
 	}
 }
 
+// TestOffsetPastMidnight checks that an entry moved past midnight by its
+// offset says which date its time is on. Sunset at 23.13° N, 82.38° W on
+// 12 March 2028: 23:37:47 UT (PyEphem 4.1.4, centre at −0.8333°, no
+// refraction of its own), 19:37:47 CDT: Cuba's clocks go forward at 00:00
+// that Sunday (IANA tz database, America/Havana); 5 h later is 00:37:47
+// CDT on Monday 13 March.
+func TestOffsetPastMidnight(t *testing.T) {
+	s := site(t, "palm-yard", 23.13, -82.38, "America/Havana")
+	sk := sky(t, "2028-03-01", "2028-03-31")
+	set := mustKinds(t, "sunset")[0]
+	for _, tc := range []struct {
+		offset time.Duration
+		want   string
+	}{
+		{5 * time.Hour, "5 h after sunset: 00:37:47 CDT the next day (Mon 13 Mar).\nSunset at 19:37:47 CDT"},
+		{-5 * time.Hour, "5 h before sunset: 14:37:47 CDT.\nSunset at 19:37:47 CDT"},
+	} {
+		es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{{Kind: set, Offset: config.Duration(tc.offset)}}, date("2028-03-12"), date("2028-03-12"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(es) != 1 || !strings.HasPrefix(es[0].Description, tc.want) {
+			t.Errorf("offset %v: %+v\nwant a description starting %q", tc.offset, es, tc.want)
+		}
+	}
+	// an offset before the date's first instant: the day before
+	rise := mustKinds(t, "sunrise")[0]
+	es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{{Kind: rise, Offset: config.Duration(-8 * time.Hour)}}, date("2028-03-13"), date("2028-03-13"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(es) != 1 || !strings.Contains(es[0].Description, " the day before (Sun 12 Mar).\n") {
+		t.Errorf("8 h before sunrise: %+v", es)
+	}
+}
+
 // The caution about legal times is in every calendar's description, once,
 // after the feed's own words and what its kinds' entries mean; of the
 // entries only civil dawn and dusk (limits of aviation night in many rules)

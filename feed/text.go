@@ -172,6 +172,22 @@ func appendDays(b []byte, n int64) []byte {
 	return append(strconv.AppendInt(append(b, " −"...), -n, 10), " days"...)
 }
 
+// appendOtherDay appends, after the clock time of an instant on the local
+// date at that is listed under the date d (an event moved past midnight
+// by its offset), which date it is: " the next day (Mon 13 Mar)", " the
+// day before (Sat 11 Mar)", " on Wed 15 Mar"; nothing when at is d.
+func appendOtherDay(b []byte, at, d time.Time) []byte {
+	switch n := floorDiv(at.Unix()-d.Unix(), secondsPerDay); n {
+	case 0:
+		return b
+	case 1:
+		return append(at.AppendFormat(append(b, " the next day ("...), "Mon 2 Jan"), ')')
+	case -1:
+		return append(at.AppendFormat(append(b, " the day before ("...), "Mon 2 Jan"), ')')
+	}
+	return at.AppendFormat(append(b, " on "...), "Mon 2 Jan")
+}
+
 // floorDiv is a/b rounded towards minus infinity (b > 0).
 func floorDiv(a, b int64) int64 {
 	q := a / b

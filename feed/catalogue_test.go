@@ -133,8 +133,8 @@ func TestSeasonNamedForHemisphere(t *testing.T) {
 		s    *config.Site
 		want string
 	}{
-		{site(t, "north", 48.2, 16.4, "Europe/Vienna"), "Spring begins"},
-		{site(t, "south", -41.3, 174.8, "Pacific/Auckland"), "Autumn begins"},
+		{site(t, "north", 48.2, 16.4, "Europe/Vienna"), "March equinox: spring begins"},
+		{site(t, "south", -41.3, 174.8, "Pacific/Auckland"), "March equinox: autumn begins"},
 	} {
 		entries, err := sk.Entries(context.Background(), tc.s, "seasons", specs, date("2027-03-01"), date("2027-04-01"))
 		if err != nil {
@@ -1105,6 +1105,31 @@ func TestNotReachedTextNearThreshold(t *testing.T) {
 		n := Note{Kind: mustKinds(t, c.kind)[0], Date: d, Last: last, State: c.state, DayLength: c.length, ExtremeDate: extreme}
 		if got := NotReachedText(n); got != c.want {
 			t.Errorf("%s, %v: %q, want %q", c.kind, c.length, got, c.want)
+		}
+	}
+}
+
+// TestSummaryTitlePolarNight checks that the daily summary of a date of
+// polar night says so in its title rather than "Daylight 0 min". At
+// 78.92° N on 21 December 2027 the Sun's noon altitude is about
+// 90° − 78.92° − 23.44° = −12.4° (the solstice declination −23.44°,
+// Astronomical Almanac), below the horizon all day; on 21 June its
+// lowest, at midnight, is about 23.44° − (90° − 78.92°) = +12.4°: up all
+// day.
+func TestSummaryTitlePolarNight(t *testing.T) {
+	s := site(t, "polar-shed", 78.92, 11.93, "Arctic/Longyearbyen")
+	sk := sky(t, "2027-01-01", "2027-12-31")
+	specs := []config.KindSpec{{Kind: mustKinds(t, "daily-summary")[0]}}
+	for _, tc := range []struct{ date, title string }{
+		{"2027-12-21", "Polar night: no daylight"},
+		{"2027-06-21", "Daylight 24 h 00 min"},
+	} {
+		es, err := sk.Entries(context.Background(), s, "f", specs, date(tc.date), date(tc.date))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(es) != 1 || es[0].Title != tc.title {
+			t.Errorf("%s: %+v, want the title %q", tc.date, es, tc.title)
 		}
 	}
 }

@@ -732,7 +732,7 @@ func describe(s *siteInfo, e Event) (string, string) {
 		fmt.Fprintf(&b, "%s at %s (%s UTC).\nStart of astronomical %s in the %s hemisphere; it lasts %s, until the next equinox or solstice.",
 			title, at, ToSecond(e.Start).UTC().Format("2006-01-02 15:04:05"), season, hemisphere(s.Latitude), days(e.SeasonLength))
 		b.WriteString(FutureNote(e.Start))
-		title = fmt.Sprintf("%s: %s begins", title, capital(season))
+		title = fmt.Sprintf("%s: %s begins", title, season) // lower case after the colon, as every title
 	case "cross-quarter":
 		fmt.Fprintf(&b, "Cross-quarter day at %s (%s UTC): the Sun reaches ecliptic longitude %s°, midway between %s.", at, ToSecond(e.Start).UTC().Format("2006-01-02 15:04:05"), e.Part, crossQuarterBetween[e.Part])
 		b.WriteString(FutureNote(e.Start))
@@ -1253,6 +1253,15 @@ func describeSummary(s *siteInfo, d time.Time, length, delta time.Duration, evs 
 	midnightSun := slices.ContainsFunc(notes, func(n Note) bool {
 		return n.Family == "sun-horizon" && n.State == astro.AlwaysAbove
 	})
+	if length == 0 && slices.ContainsFunc(notes, func(n Note) bool {
+		return n.Family == "sun-horizon" && n.State == astro.AlwaysBelow && !n.Hidden // not behind the hills
+	}) {
+		// not "Daylight 0 min": the date's state, as its description begins
+		title = "Polar night: no daylight"
+		if len(s.Skyline) > 0 {
+			title = "Polar night: no direct Sun"
+		}
+	}
 	var said []string // dawn and dusk may give one note twice
 	for _, n := range notes {
 		if n.SunUp && midnightSun {

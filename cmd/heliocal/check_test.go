@@ -164,3 +164,28 @@ feeds:
 		t.Errorf("JSON kinds changed: %s", js)
 	}
 }
+
+// check's table writes a feed's window without a side of zero days: no
+// "-0/+365 d".
+func TestCheckWindow(t *testing.T) {
+	cfg := writeConfig(t, `sites:
+  - {id: finca-guira, latitude: 22.85, longitude: -82.5, timezone: America/Havana}
+feeds:
+  - {id: ahead-only, site: finca-guira, days_back: 0, days_ahead: 365, kinds: [sunrise]}
+  - {id: back-only, site: finca-guira, days_back: 30, days_ahead: 0, kinds: [sunrise]}
+  - {id: both-ways, site: finca-guira, days_back: 30, days_ahead: 60, kinds: [sunrise]}
+  - {id: one-day, site: finca-guira, days_back: 0, days_ahead: 0, kinds: [sunrise]}
+`)
+	code, out, errOut := runCLI(t, "check", "--config", cfg)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	for _, want := range []string{"sunrise  +365 d ", "sunrise  -30 d ", "sunrise  -30/+60 d ", "sunrise  today "} {
+		if !strings.Contains(out, want) {
+			t.Errorf("table:\n%s\nwant %q", out, want)
+		}
+	}
+	if strings.Contains(out, "-0/") || strings.Contains(out, "/+0 ") {
+		t.Errorf("a side of zero days is shown:\n%s", out)
+	}
+}

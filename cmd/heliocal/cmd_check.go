@@ -255,7 +255,7 @@ func writeCheckText(g *globals, r *checkReport, notes []string) {
 		default:
 			kinds = append(kinds[:len(kinds):len(kinds)], fmt.Sprintf("%d plans", f.Plans))
 		}
-		fmt.Fprintf(tw, "%s\t%s\t%s\t-%d/+%d d\t%d\t%s\n", f.ID, f.Site, strings.Join(kinds, ","), f.DaysBack, f.DaysAhead, f.Events, size(f.Bytes))
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%d\t%s\n", f.ID, f.Site, strings.Join(kinds, ","), window(f.DaysBack, f.DaysAhead), f.Events, size(f.Bytes))
 	}
 	tw.Flush()
 	for _, wmsg := range r.Warnings {
@@ -265,3 +265,18 @@ func writeCheckText(g *globals, r *checkReport, notes []string) {
 
 // size writes a feed's size as every size heliocal reports.
 func size(n int) string { return publish.FormatBytes(int64(n)) }
+
+// window writes a feed's window of days_back and days_ahead as the check
+// table shows it: "-30/+365 d", a side of none left out ("+365 d", "-30 d"),
+// and "today" for a window of today alone.
+func window(back, ahead int) string {
+	switch {
+	case back == 0 && ahead == 0:
+		return "today"
+	case back == 0:
+		return fmt.Sprintf("+%d d", ahead)
+	case ahead == 0:
+		return fmt.Sprintf("-%d d", back)
+	}
+	return fmt.Sprintf("-%d/+%d d", back, ahead)
+}

@@ -58,3 +58,8 @@ func closest(s string, candidates []string) string {
 	}
 	return best
 }
+
+// Suggest returns the candidate that s likely means, as the configuration's
+// own suggestions pick it (a misspelt kind, month, zone or site id), or ""
+// when none is near enough: for the command line's ids (--site, --feed).
+func Suggest(s string, candidates []string) string { return closest(s, candidates) }

@@ -130,7 +130,7 @@ func eventsPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 		for i, s := range cfg.Sites {
 			ids[i] = s.ID
 		}
-		return nil, badInput("--site: %q: no such site (configured: %s)", o.site, strings.Join(ids, ", "))
+		return nil, noSuchID("--site", "site", o.site, ids)
 	}
 	switch {
 	case !o.latGiven && !o.lonGiven:
@@ -187,7 +187,7 @@ func feedPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 		for i, f := range cfg.Feeds {
 			ids[i] = f.ID
 		}
-		return nil, badInput("--feed: %q: no such feed (configured: %s)", o.feed, strings.Join(ids, ", "))
+		return nil, noSuchID("--feed", "feed", o.feed, ids)
 	}
 	for _, k := range f.Kinds {
 		if k.Kind.Name != "daily-summary" { // a feed entry made of other kinds, not an event

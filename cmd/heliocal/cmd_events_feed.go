@@ -41,7 +41,7 @@ func runEventsFeed(ctx context.Context, g *globals, o *eventsOptions) error {
 		}
 	}
 	if f == nil {
-		return badInput("--feed: %q: no such feed (configured: %s)", o.feed, strings.Join(ids, ", "))
+		return noSuchID("--feed", "feed", o.feed, ids)
 	}
 	l := newLayout(cfg.Service.BaseURL)
 	cat, err := feed.NewCatalogue(cfg, feed.Options{Now: o.now, FeedURL: l.feedURL, PageURL: l.base, Refresh: refreshInterval(cfg, o.now)})

@@ -141,8 +141,16 @@ func TestEventsFeed(t *testing.T) {
 	if code != 0 || !strings.Contains(out, "sunrise") || strings.Contains(out, "dark-window") {
 		t.Errorf("--kinds with --feed: exit %d\n%s", code, out)
 	}
-	if code, _, errOut := runCLI(t, "events", "--feed", "cairnmoor-nite"); code != exitInput || !strings.Contains(errOut, `--feed: "cairnmoor-nite": no such feed`) {
+	if code, _, errOut := runCLI(t, "events", "--feed", "cairnmoor-nite"); code != exitInput || !strings.Contains(errOut, `--feed: "cairnmoor-nite": no such feed: did you mean "cairnmoor-night"? (configured: `) {
 		t.Errorf("unknown feed: exit %d: %s", code, errOut)
+	}
+	for _, args := range [][]string{{"--feed", "glasshouse-lamps"}, {"--site", "nowhere-at-all", "--kinds", "sunrise"}} {
+		if code, _, errOut := runCLI(t, append([]string{"events"}, args...)...); code != exitInput || !strings.Contains(errOut, "(configured: ") || strings.Contains(errOut, "did you mean") {
+			t.Errorf("%s: exit %d: %s; want the configured ids and no guess", args, code, errOut)
+		}
+	}
+	if code, _, errOut := runCLI(t, "events", "--site", "cairnmor", "--kinds", "sunrise"); code != exitInput || !strings.Contains(errOut, `--site: "cairnmor": no such site: did you mean "cairnmoor"?`) {
+		t.Errorf("unknown site: exit %d: %s", code, errOut)
 	}
 	if code, _, errOut := runCLI(t, "events", "--feed", "cairnmoor-night", "--site", "cairnmoor"); code != exitInput || !strings.Contains(errOut, "--feed") {
 		t.Errorf("--feed with --site: exit %d: %s", code, errOut)

@@ -41,6 +41,16 @@ func badInput(format string, args ...any) error {
 	return inputError{fmt.Errorf(format, args...)}
 }
 
+// noSuchID refuses the id v of flag (--site, --feed) that no configured
+// what has: it names the one v likely means, as the configuration's own
+// suggestions do, and lists the configured ids.
+func noSuchID(flag, what, v string, ids []string) error {
+	if near := config.Suggest(v, ids); near != "" {
+		return badInput("%s: %q: no such %s: did you mean %q? (configured: %s)", flag, v, what, near, strings.Join(ids, ", "))
+	}
+	return badInput("%s: %q: no such %s (configured: %s)", flag, v, what, strings.Join(ids, ", "))
+}
+
 // checkBaseURLFlag refuses a --base-url the configuration would refuse as
 // service.base_url (not http(s), a query, credentials); "" is no flag.
 func checkBaseURLFlag(v string) error {

@@ -332,7 +332,7 @@ func (c *collector) lighting(k config.Kind) error {
 			if lost := short - ps[0].Lamp; lost > 0 {
 				// cut at one end: moved towards the other, as far as its limit allows
 				p := period(part, ps[0].Start.Add(-lost), ps[0].End.Add(lost))
-				p.MadeUp, p.MadeUpWhy = p.Lamp-ps[0].Lamp, "clipped"
+				p.MadeUp, p.MadeUpWhy = p.Lamp-ps[0].Lamp, MadeUpClipped
 				ps[0] = p
 			}
 		default:
@@ -473,21 +473,21 @@ func (c *collector) bothPeriods(short, minLen time.Duration, morning, evening fu
 	if e.Lamp < short-m.Lamp {
 		m = morning(short - e.Lamp) // the evening is cut: the morning makes it up
 	}
-	why := "clipped"
+	why := MadeUpClipped
 	var dropped time.Duration // the period under minLen, left out
 	if minLen > 0 && m.Lamp > 0 && m.Lamp < minLen {
 		dropped = m.Lamp
-		m, e, why = Event{}, evening(short), "minimum"
+		m, e, why = Event{}, evening(short), MadeUpMinimum
 	} else if minLen > 0 && e.Lamp > 0 && e.Lamp < minLen {
 		dropped = e.Lamp
-		e, m, why = Event{}, morning(short), "minimum"
+		e, m, why = Event{}, morning(short), MadeUpMinimum
 	}
 	// a period cut short without a limit is cut by the Sun's light
-	whyFor := func(cut Event) string {
-		if why == "minimum" || cut.Clipped {
+	whyFor := func(cut Event) MadeUpReason {
+		if why == MadeUpMinimum || cut.Clipped {
 			return why
 		}
-		return "dark"
+		return MadeUpDark
 	}
 	if x := m.Lamp - half; x > 0 {
 		m.MadeUp, m.MadeUpWhy, m.Dropped = x, whyFor(e), dropped
@@ -911,12 +911,12 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		b = append(b, lt.clippedShort[2]...)
 	case whole && e.Clipped:
 		b = append(append(append(b, "Moved within the limits ("...), lt.limits...), "): the target is reached.\n"...)
-	case e.MadeUp > 0 && e.MadeUpWhy == "minimum" && e.Dropped < shortestLamps:
+	case e.MadeUp > 0 && e.MadeUpWhy == MadeUpMinimum && e.Dropped < shortestLamps:
 		b = append(append(append(b, "All of the shortfall in one period: the "...), other...), " period would be under 1 min.\n"...)
-	case e.MadeUp > 0 && e.MadeUpWhy == "minimum":
+	case e.MadeUp > 0 && e.MadeUpWhy == MadeUpMinimum:
 		b = append(appendHM(append(b, "All of the shortfall in one period: the "...), e.Dropped), " "...)
 		b = append(append(append(append(b, other...), " period would be under the minimum of "...), lt.minimum...), ".\n"...)
-	case e.MadeUp > 0 && e.MadeUpWhy == "dark":
+	case e.MadeUp > 0 && e.MadeUpWhy == MadeUpDark:
 		b = appendHM(b, e.MadeUp)
 		b = append(append(append(b, " longer than half the shortfall: the short night leaves no more time for the "...), other...), " lamps.\n"...)
 	case e.MadeUp > 0:

@@ -44,9 +44,9 @@ type Event struct {
 	Lamp         time.Duration // lighting: length of the lamp period
 	Short        bool          // lighting: the date's lamps fall short of the target (clipped by latest_off/earliest_on)
 	Clipped      bool          // lighting: this period was cut by latest_off/earliest_on
+	MadeUpWhy    MadeUpReason  // lighting, lamps both: why this period is longer than its half (MadeUp)
 	MadeUp       time.Duration // lighting, lamps both: how much longer than its half this period is
-	MadeUpWhy    string        // "clipped": the other period was cut; "minimum": it was under min_duration
-	Dropped      time.Duration // lighting, lamps both, MadeUpWhy "minimum": the length of the other period, left out
+	Dropped      time.Duration // lighting, lamps both, MadeUpWhy MadeUpMinimum: the length of the other period, left out
 	// Eclipses: the local circumstances (one of the two is set).
 	Solar *astro.LocalSolarEclipse
 	Lunar *astro.LocalLunarEclipse
@@ -55,6 +55,18 @@ type Event struct {
 	Skyline bool
 	Visible []astro.Span
 }
+
+// MadeUpReason says why a lamp period of lamps: both is longer than its
+// half of the shortfall (Event.MadeUpWhy); a byte, so that it takes no
+// room in an Event beside the lighting flags.
+type MadeUpReason uint8
+
+const (
+	MadeUpNone    MadeUpReason = iota // not longer than its half
+	MadeUpClipped                     // the other period was cut by its limit
+	MadeUpMinimum                     // the other period would be under min_duration
+	MadeUpDark                        // the other period was cut by the Sun's light (a short night)
+)
 
 // MergedSpan reports whether e is a golden or blue hour's (or a sun band's)
 // span in which a morning and an evening meet within a day, part "all-day"

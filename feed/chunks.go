@@ -57,6 +57,21 @@ const ChunkDays = 184
 // before it have been: fn is called by one goroutine at a time, in order,
 // not always by the calling one. At most one chunk per goroutine is held.
 func (s *Sky) EventChunks(ctx context.Context, p Place, specs []config.KindSpec, first, last time.Time, fn func(Chunk) error) error {
+	return PreparedChunks(ctx, s, p, specs, first, last, nil, func(c Chunk, _ *struct{}) error { return fn(c) })
+}
+
+// PreparedChunks is s.EventChunks with a step before each chunk's turn:
+// prepare(c, t) is called on the goroutine that computed the chunk *c as
+// soon as it has, at the same time as other chunks' prepare and fn (it may
+// use nothing but c and t), and fn(*c, t) then in order, as EventChunks
+// calls fn, with the chunk as prepare left it (sorted, say) and the same t.
+// t is the goroutine's own T, the zero value before its first chunk and
+// handed to prepare again with its next one (buffers kept in it are
+// reused), so that there are as many Ts as goroutines, at most GOMAXPROCS.
+// A writer thus formats the chunks in parallel and writes them in order.
+// A nil prepare is not called. An error of prepare is returned in its
+// chunk's turn, as one of fn.
+func PreparedChunks[T any](ctx context.Context, s *Sky, p Place, specs []config.KindSpec, first, last time.Time, prepare func(*Chunk, *T) error, fn func(Chunk, *T) error) error {
 	first, last, err := dateRange(first, last)
 	if err != nil {
 		return err
@@ -98,22 +113,23 @@ func (s *Sky) EventChunks(ctx context.Context, p Place, specs []config.KindSpec,
 		}
 		return Chunk{First: d, Last: end, Events: events, Order: order, Spec: spec, Notes: notes}, nil
 	}
-	return inOrder(ctx, len(starts), min(runtime.GOMAXPROCS(0), len(starts)), compute, fn)
+	return inOrder(ctx, len(starts), min(runtime.GOMAXPROCS(0), len(starts)), compute, prepare, fn)
 }
 
 // inOrder runs compute for 0..n−1 on workers goroutines, the calling one
-// among them, each with its own buffers, and hands the results to fn in
-// order: the goroutine that computed chunk i waits until chunk i−1 has been
-// handed over, hands chunk i to fn itself and goes on with the next chunk
-// not yet taken. fn is thus called by one goroutine at a time, in the
-// order of the chunks, and only workers chunks exist at once. The
-// goroutines mostly find their turn come when they finish: one hands its
-// chunk over while the other computes, so that neither waits for a
-// hand-off between goroutines, as a writer fed by the computing
-// goroutines would at every chunk. The first error (of compute, of fn, or
-// ctx's) in the order of the chunks stops the rest; the goroutines have
-// ended when it returns.
-func inOrder(ctx context.Context, n, workers int, compute func(context.Context, int, *buffers) (Chunk, error), fn func(Chunk) error) error {
+// among them, each with its own buffers and T, and hands the results to fn
+// in order: the goroutine that computed chunk i calls prepare with it and
+// its T (unless prepare is nil), waits until chunk i−1 has been handed
+// over, hands chunk i to fn itself and goes on with the next chunk not yet
+// taken. fn is thus called by one goroutine at a time, in the order of the
+// chunks, and only workers chunks exist at once. The goroutines mostly
+// find their turn come when they finish: one hands its chunk over while
+// the other computes, so that neither waits for a hand-off between
+// goroutines, as a writer fed by the computing goroutines would at every
+// chunk. The first error (of compute, of prepare, of fn, or ctx's) in the
+// order of the chunks stops the rest; the goroutines have ended when it
+// returns.
+func inOrder[T any](ctx context.Context, n, workers int, compute func(context.Context, int, *buffers) (Chunk, error), prepare func(*Chunk, *T) error, fn func(Chunk, *T) error) error {
 	ctx, cancel := context.WithCancel(ctx)
 	defer cancel()
 	// turn[i] is closed once the chunks before i have been handed to fn
@@ -126,12 +142,16 @@ func inOrder(ctx context.Context, n, workers int, compute func(context.Context, 
 	var first error       // the error that stopped the chunks, set in turn
 	work := func() {
 		buf := &buffers{}
+		var t T
 		for {
 			i := int(next.Add(1) - 1)
 			if i >= n {
 				return
 			}
 			c, err := compute(ctx, i, buf)
+			if err == nil && prepare != nil {
+				err = prepare(&c, &t)
+			}
 			select {
 			case <-turn[i]:
 			case <-ctx.Done():
@@ -141,7 +161,7 @@ func inOrder(ctx context.Context, n, workers int, compute func(context.Context, 
 				err = ctx.Err()
 			}
 			if err == nil {
-				err = fn(c)
+				err = fn(c, &t)
 			}
 			if err != nil {
 				first = err // before cancel, which the others wait on

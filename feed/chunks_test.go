@@ -8,6 +8,7 @@ import (
 	"math/rand/v2"
 	"runtime"
 	"slices"
+	"sync"
 	"testing"
 	"time"
 
@@ -133,6 +134,82 @@ func TestEventChunksOrderAndStop(t *testing.T) {
 	})
 	if !errors.Is(err, context.Canceled) || n != 3 {
 		t.Errorf("cancelled: got %v after %d chunks", err, n)
+	}
+}
+
+// PreparedChunks calls prepare with each chunk on the goroutine that
+// computed it and fn then in order with the same chunk and the T that
+// prepare filled, one T per goroutine reused from chunk to chunk; an error
+// of prepare is returned in its chunk's turn, after fn has had the chunks
+// before it.
+func TestPreparedChunks(t *testing.T) {
+	first, last := time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC), time.Date(2031, 12, 31, 0, 0, 0, 0, time.UTC)
+	sky, err := NewSky(first, last)
+	if err != nil {
+		t.Fatal(err)
+	}
+	k, err := config.ParseKind("sunrise")
+	if err != nil {
+		t.Fatal(err)
+	}
+	specs := []config.KindSpec{{Kind: k}}
+	p := Place{Observer: astro.Observer{Latitude: 47.3, Longitude: 8.5}, Location: time.UTC}
+	const procs = 3
+	defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(procs))
+	// made is what prepare did: the chunk's first date and its first
+	// event's start, and the chunks prepared with the same T
+	type made struct {
+		first, start time.Time
+		chunks       int
+	}
+	var mu sync.Mutex
+	ts := map[*made]bool{}
+	prepare := func(c *Chunk, m *made) error {
+		c.Sort()
+		m.first, m.start = c.First, c.Events[0].Start
+		m.chunks++
+		mu.Lock()
+		ts[m] = true
+		mu.Unlock()
+		return nil
+	}
+	want, chunks := first, 0
+	err = PreparedChunks(context.Background(), sky, p, specs, first, last, prepare, func(c Chunk, m *made) error {
+		if !c.First.Equal(want) || !m.first.Equal(c.First) {
+			t.Fatalf("chunk %d: fn has the chunk of %s and what prepare made of %s, want %s", chunks, c.First.Format(time.DateOnly), m.first.Format(time.DateOnly), want.Format(time.DateOnly))
+		}
+		if c.Order != nil || !c.Events[0].Start.Equal(m.start) {
+			t.Fatalf("chunk %d: fn does not have the chunk as prepare left it", chunks)
+		}
+		want, chunks = c.Last.AddDate(0, 0, 1), chunks+1
+		return nil
+	})
+	if err != nil || !want.Equal(last.AddDate(0, 0, 1)) {
+		t.Fatalf("ended at %s with %v", want.Format(time.DateOnly), err)
+	}
+	n := 0
+	for m := range ts {
+		n += m.chunks
+	}
+	if len(ts) > procs || n != chunks {
+		t.Errorf("%d chunks prepared with %d Ts, want %d chunks with %d at most", n, len(ts), chunks, procs)
+	}
+	stop := errors.New("stop")
+	chunks = 0
+	err = PreparedChunks(context.Background(), sky, p, specs, first, last, func(c *Chunk, _ *struct{}) error {
+		if c.First.Year() == 2029 {
+			return stop
+		}
+		return nil
+	}, func(c Chunk, _ *struct{}) error {
+		if c.First.Year() >= 2029 {
+			t.Errorf("fn has the chunk of %s after prepare failed", c.First.Format(time.DateOnly))
+		}
+		chunks++
+		return nil
+	})
+	if err != stop || chunks != 4 {
+		t.Errorf("prepare's error: got %v after %d chunks, want it after 4", err, chunks)
 	}
 }
 

@@ -305,7 +305,7 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 	if out == nil {
 		return badInput("--format: %q: use table, json, csv or ics", o.format)
 	}
-	if err := sky.EventChunks(ctx, feed.PlaceOf(site), specs, from, to, out.chunk); err != nil {
+	if err := feed.PreparedChunks(ctx, sky, feed.PlaceOf(site), specs, from, to, out.prepare, out.write); err != nil {
 		return err
 	}
 	return out.close()

@@ -2,11 +2,13 @@ package main
 
 import (
 	"bufio"
+	"bytes"
 	"encoding/csv"
 	"encoding/json"
 	"fmt"
 	"io"
 	"math"
+	"slices"
 	"strconv"
 	"time"
 	"unicode/utf8"
@@ -18,10 +20,24 @@ import (
 
 // The events command writes its output chunk by chunk as feed.EventChunks
 // computes it (JSON, CSV or the table), so memory does not grow with the
-// span. An eventSink is one output format.
+// span. An eventSink is one output format: it formats a chunk on the
+// goroutine that computed it, while other chunks are computed and written
+// (prepare, into that goroutine's chunkOut), and writes it in the order
+// of the chunks (write), doing then only what depends on the chunks
+// before.
 type eventSink interface {
-	chunk(c feed.Chunk) error
+	prepare(c *feed.Chunk, out *chunkOut) error
+	write(c feed.Chunk, out *chunkOut) error
 	close() error // writes what ends the document and flushes
+}
+
+// chunkOut is a chunk's output as prepare makes it ready for write. Each
+// goroutine that computes chunks has its own (feed.PreparedChunks) and
+// reuses its buffers from one of its chunks to the next.
+type chunkOut struct {
+	json  jsonPart
+	csv   csvPart
+	table tablePart
 }
 
 // newEventSink returns the writer for format ("json", "csv", "table"), or
@@ -45,20 +61,65 @@ func newEventSink(format string, w io.Writer, s *config.Site, from, to time.Time
 // chunks: the events of a chunk that start after its last date are held
 // back and merged with the next chunk's. Notes follow the events in the
 // document, so they are kept (already encoded, about 100 bytes each) until
-// the end; most places have none or a few per year.
+// the end; most places have none or a few per year. The events' and the
+// notes' text is made by prepare (jsonPart), each object after a comma:
+// write drops the comma before the document's first.
 type jsonSink struct {
 	w        *bufio.Writer
+	err      error // the first error of a write
 	site     *config.Site
 	from, to time.Time
-	buf      []byte
-	events   int
+	begun    bool // the document's start is written
+	any      bool // an event is written
 	notes    []byte
-	held     []feed.Event // in order of start
-	spare    []feed.Event // the next chunk's held events are gathered here
-	ident    []int32      // the order of a chunk without one
-	kinds    []*jsonKind  // the kinds met so far, looked up in order
-	bySpec   []*jsonKind  // the kind last met of each kind spec (Chunk.Spec)
-	days     dayCache
+	held     eventTexts // in order of start
+	spare    eventTexts // the next chunk's held events are gathered here
+}
+
+// eventTexts are the texts of events, one after the other, each after a
+// comma, with where each begins and when it starts.
+type eventTexts struct {
+	text   []byte
+	at     []int32
+	starts []time.Time
+}
+
+func (t *eventTexts) len() int { return len(t.at) }
+
+// piece returns the text of the i-th event.
+func (t *eventTexts) piece(i int) []byte {
+	if i+1 < len(t.at) {
+		return t.text[t.at[i]:t.at[i+1]]
+	}
+	return t.text[t.at[i]:]
+}
+
+// add appends the i-th event of from.
+func (t *eventTexts) add(from *eventTexts, i int) {
+	t.at = append(t.at, int32(len(t.text)))
+	t.text = append(t.text, from.piece(i)...)
+	t.starts = append(t.starts, from.starts[i])
+}
+
+func (t *eventTexts) reset() {
+	t.text, t.at, t.starts = t.text[:0], t.at[:0], t.starts[:0]
+}
+
+// jsonPart is a chunk's JSON as prepare makes it: its events in order of
+// start, those that start after its last date apart, and its notes. What
+// it knows of the kinds met is kept from chunk to chunk.
+type jsonPart struct {
+	text  []byte  // the events that start before the chunk's next date
+	order []int32 // the chunk's events in order of start
+	cut   int     // the events in text: order[:cut]
+	next  time.Time
+	held  eventTexts // the events order[cut:], held back
+	notes []byte
+
+	kinds  []*jsonKind // the kinds met so far, looked up in order
+	bySpec []*jsonKind // the kind last met of each kind spec (Chunk.Spec)
+	ident  []int32     // the order of a chunk without one
+	days   dayCache
 }
 
 // dayCache keeps the last day written as YYYY-MM-DD: consecutive events
@@ -151,77 +212,135 @@ func (k *jsonKind) template(d astro.Direction) *jsonTemplate {
 	return t
 }
 
-// jsonFlush is the size at which the writer hands its buffer on.
-const jsonFlush = 256 << 10
-
-func (j *jsonSink) chunk(c feed.Chunk) error {
-	if j.events == 0 && j.buf == nil {
-		// room for what is written between flushes: an event object
-		// takes a few hundred bytes
-		j.buf = append(make([]byte, 0, jsonFlush+16<<10), "{\n  \"events\": ["...)
-	}
+func (j *jsonSink) prepare(c *feed.Chunk, out *chunkOut) error {
+	p := &out.json
 	loc := j.site.TimeZone.Location
-	next := astro.DateStart(loc, c.Last.Year(), c.Last.Month(), c.Last.Day()+1)
+	p.next = astro.DateStart(loc, c.Last.Year(), c.Last.Month(), c.Last.Day()+1)
 	evs, order, spec := c.Events, c.Order, c.Spec
 	if order == nil {
-		for len(j.ident) < len(evs) {
-			j.ident = append(j.ident, int32(len(j.ident)))
+		for len(p.ident) < len(evs) {
+			p.ident = append(p.ident, int32(len(p.ident)))
 		}
-		order = j.ident[:len(evs)]
+		order = p.ident[:len(evs)]
 	}
 	if len(spec) != len(order) {
 		spec = nil
 	}
 	cut := len(order)
-	for cut > 0 && !evs[order[cut-1]].Start.Before(next) {
+	for cut > 0 && !evs[order[cut-1]].Start.Before(p.next) {
 		cut--
 	}
-	// the events held back from the chunk before go in among these,
-	// before an event that starts at the same instant
-	held, done := j.held, 0 // order[:done] written
-	for len(held) > 0 {
-		// the chunk's events before the first held back (it goes before
-		// those that start at the same instant), then it
-		p := done
-		for p < cut && evs[order[p]].Start.Before(held[0].Start) {
-			p++
-		}
-		if p == cut && !held[0].Start.Before(next) {
-			break
-		}
-		if err := j.ordered(evs, order[done:p], specs(spec, done, p)); err != nil {
-			return err
-		}
-		done = p
-		j.event(&held[0], j.kind(&held[0].Kind))
-		held = held[1:]
+	p.order, p.cut = order, cut
+	p.text = p.ordered(p.text[:0], evs, order[:cut], specs(spec, 0, cut))
+	p.held.reset()
+	for o, i := range order[cut:] {
+		p.held.at = append(p.held.at, int32(len(p.held.text)))
+		p.held.text = p.ordered(p.held.text, evs, order[cut+o:cut+o+1], specs(spec, cut+o, cut+o+1))
+		p.held.starts = append(p.held.starts, evs[i].Start)
 	}
-	if err := j.ordered(evs, order[done:cut], specs(spec, done, cut)); err != nil {
-		return err
-	}
-	// held back now: the rest of those and the events that start after
-	// this chunk's last date, merged by start
-	keep, tail := j.spare[:0], order[cut:]
-	for len(held) > 0 || len(tail) > 0 {
-		if len(tail) == 0 || len(held) > 0 && !evs[tail[0]].Start.Before(held[0].Start) {
-			keep, held = append(keep, held[0]), held[1:]
-		} else {
-			keep, tail = append(keep, evs[tail[0]]), tail[1:]
-		}
-	}
-	j.held, j.spare = keep, j.held[:0]
+	p.notes = p.notes[:0]
 	for i := range c.Notes {
 		obj, err := json.MarshalIndent(toJSONNote(c.Notes[i]), "    ", "  ")
 		if err != nil {
 			return err
 		}
-		if len(j.notes) > 0 {
-			j.notes = append(j.notes, ',')
-		}
-		j.notes = append(j.notes, "\n    "...)
-		j.notes = append(j.notes, obj...)
+		p.notes = append(p.notes, ",\n    "...)
+		p.notes = append(p.notes, obj...)
 	}
-	return j.flush()
+	return nil
+}
+
+// write writes the events prepared, with the events held back from the
+// chunk before among them, and keeps the notes and the events held back
+// now.
+func (j *jsonSink) write(c feed.Chunk, out *chunkOut) error {
+	p := &out.json
+	j.begin()
+	evs, order := c.Events, p.order
+	// the events held back from the chunk before go in among these,
+	// before an event that starts at the same instant
+	h, done, at := 0, 0, 0 // held[:h] and order[:done] (text[:at]) written
+	for ; h < j.held.len(); h++ {
+		start := j.held.starts[h]
+		q := done
+		for q < p.cut && evs[order[q]].Start.Before(start) {
+			q++
+		}
+		if q == p.cut && !start.Before(p.next) {
+			break
+		}
+		end := at + eventAt(p.text[at:], q-done)
+		j.put(p.text[at:end])
+		j.put(j.held.piece(h))
+		done, at = q, end
+	}
+	j.put(p.text[at:])
+	// held back now: the rest of those and the chunk's, merged by start
+	keep := &j.spare
+	keep.reset()
+	for t := 0; h < j.held.len() || t < p.held.len(); {
+		if t == p.held.len() || h < j.held.len() && !p.held.starts[t].Before(j.held.starts[h]) {
+			keep.add(&j.held, h)
+			h++
+		} else {
+			keep.add(&p.held, t)
+			t++
+		}
+	}
+	j.held, j.spare = j.spare, j.held
+	if len(p.notes) > 0 {
+		n := p.notes
+		if len(j.notes) == 0 {
+			n = n[1:] // the comma
+		}
+		j.notes = append(j.notes, n...)
+	}
+	return j.err
+}
+
+// eventAt returns where the i-th event of text (events one after the
+// other, each after a comma) begins, or len(text) when it has i events.
+// Each object begins with a comma, a line break and four spaces, and no
+// text within an object does: its fields and what they hold are indented
+// further, and a string has no line break.
+func eventAt(text []byte, i int) int {
+	at := 0
+	for ; i > 0; i-- {
+		n := bytes.Index(text[at+1:], jsonEventStart)
+		if n < 0 {
+			return len(text)
+		}
+		at += 1 + n
+	}
+	return at
+}
+
+var jsonEventStart = []byte(",\n    {")
+
+// begin writes the start of the document, once.
+func (j *jsonSink) begin() {
+	if !j.begun {
+		j.begun = true
+		j.writeBytes([]byte("{\n  \"events\": ["))
+	}
+}
+
+// put writes the text of events, without the comma before the first event
+// of the document.
+func (j *jsonSink) put(b []byte) {
+	if len(b) == 0 {
+		return
+	}
+	if !j.any {
+		b, j.any = b[1:], true
+	}
+	j.writeBytes(b)
+}
+
+func (j *jsonSink) writeBytes(b []byte) {
+	if _, err := j.w.Write(b); err != nil && j.err == nil {
+		j.err = err
+	}
 }
 
 // specs is spec[from:to], or nil when spec is.
@@ -232,19 +351,21 @@ func specs(spec []int32, from, to int) []int32 {
 	return spec[from:to]
 }
 
-// ordered writes evs[order[0]], evs[order[1]] and on, the kind spec of
-// each in spec (nil: not known), and hands the buffer on whenever it is
-// full.
-func (j *jsonSink) ordered(evs []feed.Event, order, spec []int32) error {
+// ordered appends to b the objects of evs[order[0]], evs[order[1]] and on,
+// the kind spec of each in spec (nil: not known).
+func (p *jsonPart) ordered(b []byte, evs []feed.Event, order, spec []int32) []byte {
 	for o, i := range order {
+		if o%jsonBlock == 0 {
+			b = jsonRoom(b, len(order)-o)
+		}
 		e := &evs[i]
 		// the kind last met of the event's kind spec, nearly always
 		var k *jsonKind
-		if spec != nil && int(spec[o]) < len(j.bySpec) {
-			k = j.bySpec[spec[o]]
+		if spec != nil && int(spec[o]) < len(p.bySpec) {
+			k = p.bySpec[spec[o]]
 		}
 		if k == nil || !sameKind(&k.kind, &e.Kind) {
-			k = j.kindOf(e, spec, o)
+			k = p.kindOf(e, spec, o)
 		}
 		// nearly every event of a long listing: its kind's text with the
 		// digits written in, the text made the first time
@@ -252,55 +373,58 @@ func (j *jsonSink) ordered(evs []feed.Event, order, spec []int32) error {
 		if t == nil && k.plain && !k.long[dirIndex(e.Direction)] {
 			t = k.template(e.Direction)
 		}
-		if t != nil && e.End.IsZero() && e.Part == "" && !e.DirectSun &&
-			j.events > 0 && cap(j.buf)-len(j.buf) >= jsonTemplateSize {
-			j.buf = j.plainEvent(j.buf, k, t, e)
-			j.events++
+		if t != nil && e.End.IsZero() && e.Part == "" && !e.DirectSun {
+			b = p.plainEvent(b, k, t, e)
 		} else {
-			j.event(e, k)
-		}
-		if len(j.buf) >= jsonFlush {
-			if err := j.flush(); err != nil {
-				return err
-			}
+			b = jsonRoom(p.event(b, e, k), jsonBlock)
 		}
 	}
-	return nil
+	return b
 }
 
-func (j *jsonSink) flush() error {
-	_, err := j.w.Write(j.buf)
-	j.buf = j.buf[:0]
-	return err
-}
+// jsonEventRoom is the room that plainEvent needs for an event and leaves
+// for the next: its text array and at most 80 bytes more (two numbers of
+// up to 24 bytes, appendRounded, a field's name and the closing brace).
+// ordered makes room for jsonBlock events at a time.
+const (
+	jsonEventRoom = jsonTemplateSize + 80
+	jsonBlock     = 64
+)
 
-// event appends one event object: the Sun's daily kinds (nearly all of a
-// long listing) written directly, any other kind (and a sunrise or sunset
-// over a skyline, with its direct_sun_s) through toJSONEvent and
-// encoding/json.
-func (j *jsonSink) event(e *feed.Event, k *jsonKind) {
-	b := j.buf
-	if j.events > 0 {
-		b = append(b, ',')
+// jsonRoom returns b with room for the next jsonBlock events written by
+// plainEvent, one after the other, so that they need not check it. When it
+// grows b, it makes room for n events of 160 bytes at least (a sunrise
+// takes 195, a twilight 140 to 150): the runtime clears the whole buffer
+// when it allocates it, so it is not made much larger than a chunk needs.
+func jsonRoom(b []byte, n int) []byte {
+	if cap(b)-len(b) < jsonBlock*jsonEventRoom {
+		b = slices.Grow(b, max(jsonBlock*jsonEventRoom, n*160))
 	}
-	j.events++
+	return b
+}
+
+// event appends one event object after a comma: the Sun's daily kinds
+// (nearly all of a long listing) written directly, any other kind (and a
+// sunrise or sunset over a skyline, with its direct_sun_s) through
+// toJSONEvent and encoding/json.
+func (p *jsonPart) event(b []byte, e *feed.Event, k *jsonKind) []byte {
+	b = append(b, ',')
 	if !k.plain || e.DirectSun || e.Open {
 		obj, err := json.MarshalIndent(toJSONEvent(*e), "    ", "  ")
 		if err != nil { // plain strings and finite numbers: cannot fail
 			panic(err)
 		}
 		b = append(b, "\n    "...)
-		j.buf = append(b, obj...)
-		return
+		return append(b, obj...)
 	}
 	b = append(b, k.head...)
-	b = j.days.appendUTCMillis(b, e.Start)
+	b = p.days.appendUTCMillis(b, e.Start)
 	if !e.End.IsZero() {
 		b = append(b, "\",\n      \"end\": \""...)
-		b = j.days.appendUTCMillis(b, e.End)
+		b = p.days.appendUTCMillis(b, e.End)
 	}
 	b = appendToDate(b, e.Direction)
-	b = j.days.appendCivilDate(b, e.Date)
+	b = p.days.appendCivilDate(b, e.Date)
 	b = append(b, '"')
 	if e.Part != "" {
 		b = append(b, ",\n      \"part\": "...)
@@ -316,22 +440,23 @@ func (j *jsonSink) event(e *feed.Event, k *jsonKind) {
 		b = append(b, ",\n      \"azimuth_deg\": "...)
 		b = appendRounded(b, e.Azimuth, 2)
 	}
-	j.buf = append(b, "\n    }"...)
+	return append(b, "\n    }"...)
 }
 
-// plainEvent appends the event e of the plain kind k, after another
-// event, without end or part, through k's text t for e's direction: the
+// plainEvent appends the event e of the plain kind k, without end or part,
+// through k's text t for e's direction (which begins with the comma): the
 // text is copied whole, e's start and date are written over its zeros,
-// and its numbers follow. b has room for the whole text array. The start
+// and its numbers follow. b has room for the whole text array and the
+// numbers (jsonEventRoom). The start
 // is cut from Unix nanoseconds (every instant astro serves, 1800–2200).
-func (j *jsonSink) plainEvent(b []byte, k *jsonKind, t *jsonTemplate, e *feed.Event) []byte {
+func (p *jsonPart) plainEvent(b []byte, k *jsonKind, t *jsonTemplate, e *feed.Event) []byte {
 	n := len(b)
 	w := (*[jsonTemplateSize]byte)(b[n : n+jsonTemplateSize])
 	*w = t.text
 	b = b[:n+t.n]
-	j.days.putStamp((*[24]byte)(w[t.start:t.start+24]), e.Start.UnixNano())
+	p.days.putStamp((*[24]byte)(w[t.start:t.start+24]), e.Start.UnixNano())
 	d, _ := floorDiv(e.Date.Unix(), 86400)
-	*(*[10]byte)(w[t.date : t.date+10]) = *j.days.dateText(d)
+	*(*[10]byte)(w[t.date : t.date+10]) = *p.days.dateText(d)
 	switch {
 	case k.noon:
 		b = appendRounded(b, e.Altitude, 4)
@@ -348,20 +473,20 @@ func (j *jsonSink) plainEvent(b []byte, k *jsonKind, t *jsonTemplate, e *feed.Ev
 // kindOf returns what the writer knows of the kind of e, the event at
 // o in the order of a chunk whose kind specs are spec (nil: none known),
 // and remembers it as the kind last met of e's kind spec.
-func (j *jsonSink) kindOf(e *feed.Event, spec []int32, o int) *jsonKind {
-	k := j.kind(&e.Kind)
+func (p *jsonPart) kindOf(e *feed.Event, spec []int32, o int) *jsonKind {
+	k := p.kind(&e.Kind)
 	if spec != nil {
-		for int(spec[o]) >= len(j.bySpec) {
-			j.bySpec = append(j.bySpec, nil)
+		for int(spec[o]) >= len(p.bySpec) {
+			p.bySpec = append(p.bySpec, nil)
 		}
-		j.bySpec[spec[o]] = k
+		p.bySpec[spec[o]] = k
 	}
 	return k
 }
 
 // kind returns what the writer knows of k, working it out the first time.
-func (j *jsonSink) kind(k *config.Kind) *jsonKind {
-	for _, jk := range j.kinds {
+func (p *jsonPart) kind(k *config.Kind) *jsonKind {
+	for _, jk := range p.kinds {
 		if sameKind(&jk.kind, k) {
 			return jk
 		}
@@ -369,7 +494,7 @@ func (j *jsonSink) kind(k *config.Kind) *jsonKind {
 	jk := &jsonKind{kind: *k, plain: plainJSONKinds[k.Name], noon: k.Name == "solar-noon",
 		rise: k.Name == "sunrise" || k.Name == "sunset"}
 	jk.head = string(append(appendJSONString([]byte("\n    {\n      \"kind\": "), k.String()), ",\n      \"start\": \""...))
-	j.kinds = append(j.kinds, jk)
+	p.kinds = append(p.kinds, jk)
 	return jk
 }
 
@@ -421,30 +546,29 @@ var plainJSONKinds = map[string]bool{
 }
 
 func (j *jsonSink) close() error {
-	if j.buf == nil {
-		j.buf = append(j.buf, "{\n  \"events\": ["...)
+	j.begin()
+	for h := range j.held.len() {
+		j.put(j.held.piece(h))
 	}
-	for i := range j.held {
-		j.event(&j.held[i], j.kind(&j.held[i].Kind))
+	var b []byte
+	if j.any {
+		b = append(b, "\n  "...)
 	}
-	if j.events > 0 {
-		j.buf = append(j.buf, "\n  "...)
-	}
-	j.buf = append(j.buf, "],\n  \"notes\": ["...)
+	b = append(b, "],\n  \"notes\": ["...)
 	if len(j.notes) > 0 {
-		j.buf = append(j.buf, j.notes...)
-		j.buf = append(j.buf, "\n  "...)
+		b = append(b, j.notes...)
+		b = append(b, "\n  "...)
 	}
-	j.buf = append(j.buf, "],\n  \"site\": "...)
-	s := j.site
-	site, err := json.MarshalIndent(siteJSON(s, j.from, j.to), "  ", "  ")
+	b = append(b, "],\n  \"site\": "...)
+	site, err := json.MarshalIndent(siteJSON(j.site, j.from, j.to), "  ", "  ")
 	if err != nil {
 		return err
 	}
-	j.buf = append(j.buf, site...)
-	j.buf = append(j.buf, "\n}\n"...)
-	if err := j.flush(); err != nil {
-		return err
+	b = append(b, site...)
+	b = append(b, "\n}\n"...)
+	j.writeBytes(b)
+	if j.err != nil {
+		return j.err
 	}
 	return j.w.Flush()
 }
@@ -640,19 +764,39 @@ type csvSink struct {
 	loc *time.Location
 }
 
+// csvPart is a chunk's rows as prepare writes them.
+type csvPart struct {
+	buf bytes.Buffer
+	cw  *csv.Writer // writes to buf
+}
+
 func newCSVSink(w *bufio.Writer, s *config.Site) *csvSink {
 	c := &csvSink{w: w, cw: csv.NewWriter(w), loc: s.TimeZone.Location}
 	_ = c.cw.Write(eventsCSVHeader)
 	return c
 }
 
-func (c *csvSink) chunk(ch feed.Chunk) error {
+func (c *csvSink) prepare(ch *feed.Chunk, out *chunkOut) error {
+	p := &out.csv
+	if p.cw == nil {
+		p.cw = csv.NewWriter(&p.buf)
+	}
+	p.buf.Reset()
 	ch.Sort()
-	if err := writeEventsCSVRows(c.cw, c.loc, ch.Events, ch.Notes); err != nil {
+	if err := writeEventsCSVRows(p.cw, c.loc, ch.Events, ch.Notes); err != nil {
 		return err
 	}
-	c.cw.Flush()
-	return c.cw.Error()
+	p.cw.Flush()
+	return p.cw.Error()
+}
+
+func (c *csvSink) write(_ feed.Chunk, out *chunkOut) error {
+	c.cw.Flush() // the header, before the first chunk
+	if err := c.cw.Error(); err != nil {
+		return err
+	}
+	_, err := c.w.Write(out.csv.buf.Bytes())
+	return err
 }
 
 func (c *csvSink) close() error {
@@ -674,7 +818,13 @@ type tableSink struct {
 	o      astro.Observer // the site's: the words of band spans (feed.SpanWords)
 	widths [3]int
 	header bool
+}
+
+// tablePart is a chunk's rows as prepare makes them, and the widths of
+// their first three columns.
+type tablePart struct {
 	rows   [][4]string
+	widths [3]int
 }
 
 func newTableSink(w *bufio.Writer, s *config.Site) *tableSink {
@@ -683,16 +833,13 @@ func newTableSink(w *bufio.Writer, s *config.Site) *tableSink {
 	return &tableSink{w: w, loc: loc, o: feed.PlaceOf(s).Observer}
 }
 
-func (t *tableSink) chunk(ch feed.Chunk) error {
+func (t *tableSink) prepare(ch *feed.Chunk, out *chunkOut) error {
 	ch.Sort()
-	t.rows = t.rows[:0]
-	if !t.header {
-		t.rows = append(t.rows, [4]string{"DATE", "TIME", "KIND", "DETAILS"})
-		t.header = true
-	}
+	p := &out.table
+	p.rows, p.widths = p.rows[:0], [3]int{}
 	for _, r := range mergeRows(ch.Events, ch.Notes) {
 		if r.note != nil {
-			t.rows = append(t.rows, [4]string{r.note.Date.Format("2006-01-02 Mon"), "-", r.note.Kind.String(), noteText(r.note)})
+			p.rows = append(p.rows, [4]string{r.note.Date.Format("2006-01-02 Mon"), "-", r.note.Kind.String(), noteText(r.note)})
 			continue
 		}
 		e := r.event
@@ -700,14 +847,37 @@ func (t *tableSink) chunk(ch feed.Chunk) error {
 		if !e.DateOnly() {
 			at = feed.ToSecond(e.Start).In(t.loc).Format("15:04:05 MST") + feed.DayMark(e.Start, e.Date, t.loc)
 		}
-		t.rows = append(t.rows, [4]string{e.Date.Format("2006-01-02 Mon"), at, e.Kind.String(), detailsAt(e, t.loc, t.o)})
+		p.rows = append(p.rows, [4]string{e.Date.Format("2006-01-02 Mon"), at, e.Kind.String(), detailsAt(e, t.loc, t.o)})
 	}
-	for _, r := range t.rows {
-		for i := range t.widths {
-			t.widths[i] = max(t.widths[i], utf8.RuneCountInString(r[i]))
-		}
+	for _, r := range p.rows {
+		p.widths = rowWidths(p.widths, &r)
 	}
-	for _, r := range t.rows {
+	return nil
+}
+
+// rowWidths returns widths widened to r's first three columns.
+func rowWidths(widths [3]int, r *[4]string) [3]int {
+	for i := range widths {
+		widths[i] = max(widths[i], utf8.RuneCountInString(r[i]))
+	}
+	return widths
+}
+
+// tableHeading is the table's first row.
+var tableHeading = [4]string{"DATE", "TIME", "KIND", "DETAILS"}
+
+func (t *tableSink) write(_ feed.Chunk, out *chunkOut) error {
+	p := &out.table
+	rows := p.rows
+	if !t.header {
+		t.header = true
+		t.widths = rowWidths(t.widths, &tableHeading)
+		rows = append([][4]string{tableHeading}, rows...)
+	}
+	for i := range t.widths {
+		t.widths[i] = max(t.widths[i], p.widths[i])
+	}
+	for _, r := range rows {
 		for i := range t.widths {
 			t.w.WriteString(r[i])
 			for range t.widths[i] - utf8.RuneCountInString(r[i]) + 2 {
@@ -724,7 +894,7 @@ func (t *tableSink) chunk(ch feed.Chunk) error {
 
 func (t *tableSink) close() error {
 	if !t.header { // no chunk at all: the heading alone
-		if err := t.chunk(feed.Chunk{}); err != nil {
+		if err := t.write(feed.Chunk{}, &chunkOut{}); err != nil {
 			return err
 		}
 	}
@@ -739,7 +909,11 @@ func writeEventsOnce(format string, w io.Writer, s *config.Site, from, to time.T
 	if out == nil {
 		return fmt.Errorf("events: unknown format %q", format)
 	}
-	if err := out.chunk(feed.Chunk{First: from, Last: to, Events: events, Notes: notes}); err != nil {
+	c, o := feed.Chunk{First: from, Last: to, Events: events, Notes: notes}, &chunkOut{}
+	if err := out.prepare(&c, o); err != nil {
+		return err
+	}
+	if err := out.write(c, o); err != nil {
 		return err
 	}
 	return out.close()

@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"context"
 	"encoding/json"
+	"fmt"
 	"io"
 	"math"
 	"math/rand/v2"
@@ -25,25 +26,74 @@ import (
 // windows), far-future uncertainties and a plain kind whose name is too
 // long for its prepared text (sun-altitude:-1e-50 written out in full).
 func TestEventsJSONStreamedAsEncoder(t *testing.T) {
-	args := []string{"events", "--lat", "69.65", "--lon", "18.96", "--tz", "Europe/Oslo", "--from", "2098-06-01",
-		"--to", "2099-09-30", "--kinds", "sunrise,sunset,solar-noon,sun-altitude:-4,sun-altitude:-1e-50,civil-dusk,golden-hour,dark-window,moon-phases,seasons,perihelion,photoperiod:20h,lighting:16h",
-		"--max-illumination", "0.25", "--format", "json"}
-	code, out, errOut := runCLI(t, args...)
+	kinds := "sunrise,sunset,solar-noon,sun-altitude:-4,sun-altitude:-1e-50,civil-dusk,golden-hour,dark-window,moon-phases,seasons,perihelion,photoperiod:20h,lighting:16h"
+	code, out, errOut := runCLI(t, "events", "--lat", "69.65", "--lon", "18.96", "--tz", "Europe/Oslo", "--from", "2098-06-01",
+		"--to", "2099-09-30", "--kinds", kinds, "--max-illumination", "0.25", "--format", "json")
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, errOut)
 	}
-	site := &config.Site{ID: "place", Name: "69.6500, 18.9600", Latitude: 69.65, Longitude: 18.96}
-	if err := site.TimeZone.UnmarshalText([]byte("Europe/Oslo")); err != nil {
+	want, st := encoderJSON(t, 69.65, 18.96, "Europe/Oslo", kinds, 0.25, "2098-06-01", "2099-09-30")
+	if st.chunks < 3 || st.notes == 0 || !strings.Contains(out, `"uncertainty_s"`) || !strings.Contains(out, `"dark-window"`) || !strings.Contains(out, `"lamp_s"`) ||
+		!strings.Contains(out, `"sun-altitude:-0.00000000000000000000000000000000000000000000000001"`) {
+		t.Fatalf("the case does not exercise the writer: %d chunks, %d notes", st.chunks, st.notes)
+	}
+	sameLines(t, out, want)
+}
+
+// The events that a chunk holds back (spans named by their evening that
+// start after its last date: dark windows from a moonset or an
+// astronomical dusk after midnight, at a site whose clock runs two and a
+// half hours ahead of the Sun in summer) go in among the next chunk's
+// events, which are written before them or after them, before the events
+// of that chunk that start at the same instant, over eight years (16
+// chunks), byte for byte as encoding/json writes the sorted listing.
+func TestEventsJSONHeldSpliced(t *testing.T) {
+	kinds := "dark-window,moonrise,moonset,astronomical-dusk,sunrise"
+	code, out, errOut := runCLI(t, "events", "--lat", "43.37", "--lon", "-8.4", "--tz", "Europe/Madrid", "--from", "2030-01-01",
+		"--to", "2037-12-31", "--kinds", kinds, "--format", "json")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	want, st := encoderJSON(t, 43.37, -8.4, "Europe/Madrid", kinds, 0, "2030-01-01", "2037-12-31")
+	t.Logf("%d chunks, %d events held back: %d after an event of the next chunk, %d with one at the same instant", st.chunks, st.held, st.inside, st.ties)
+	if st.chunks < 16 || st.inside == 0 || st.ties == 0 {
+		t.Fatalf("the case does not exercise the splice: %d chunks, %d events held back, %d after an event of the next chunk, %d with one at the same instant",
+			st.chunks, st.held, st.inside, st.ties)
+	}
+	sameLines(t, out, want)
+}
+
+// chunkStats counts what a listing's chunks hold: notes, events held back
+// (starting after their chunk's last date), of them those that start
+// after an event of the next chunk, and those that start at the same
+// instant as one.
+type chunkStats struct{ chunks, notes, held, inside, ties int }
+
+// encoderJSON returns the document of the events command's JSON for the
+// place and kinds on the dates from..to (YYYY-MM-DD) as encoding/json's
+// indenting Encoder writes it: every chunk's events sorted by start, stable,
+// and its notes in order.
+func encoderJSON(t *testing.T, lat, lon float64, zone, kindList string, maxLit float64, fromText, toText string) (string, chunkStats) {
+	t.Helper()
+	site := &config.Site{ID: "place", Name: fmt.Sprintf("%.4f, %.4f", lat, lon), Latitude: lat, Longitude: lon}
+	if err := site.TimeZone.UnmarshalText([]byte(zone)); err != nil {
 		t.Fatal(err)
 	}
-	from, to := time.Date(2098, 6, 1, 0, 0, 0, 0, time.UTC), time.Date(2099, 9, 30, 0, 0, 0, 0, time.UTC)
-	kinds, err := parseKinds("sunrise,sunset,solar-noon,sun-altitude:-4,sun-altitude:-1e-50,civil-dusk,golden-hour,dark-window,moon-phases,seasons,perihelion,photoperiod:20h,lighting:16h")
+	from, err := time.Parse(time.DateOnly, fromText)
+	if err != nil {
+		t.Fatal(err)
+	}
+	to, err := time.Parse(time.DateOnly, toText)
+	if err != nil {
+		t.Fatal(err)
+	}
+	kinds, err := parseKinds(kindList)
 	if err != nil {
 		t.Fatal(err)
 	}
 	specs := make([]config.KindSpec, len(kinds))
 	for i, k := range kinds {
-		specs[i] = config.KindSpec{Kind: k, MaxIllumination: 0.25}
+		specs[i] = config.KindSpec{Kind: k, MaxIllumination: maxLit}
 	}
 	sky, err := feed.NewSky(from, to)
 	if err != nil {
@@ -54,14 +104,39 @@ func TestEventsJSONStreamedAsEncoder(t *testing.T) {
 		Notes  []jsonNote  `json:"notes"`
 		Site   jsonSite    `json:"site"`
 	}{Events: []jsonEvent{}, Notes: []jsonNote{}}
+	var st chunkStats
 	var events []feed.Event
-	chunks := 0
+	var held []time.Time // the starts of the chunk before's events held back
+	loc := site.TimeZone.Location
 	err = sky.EventChunks(context.Background(), feed.PlaceOf(site), specs, from, to, func(c feed.Chunk) error {
-		chunks++
+		c.Sort()
+		st.chunks++
+		for _, h := range held {
+			before, same := false, false
+			for i := range c.Events {
+				before = before || c.Events[i].Start.Before(h)
+				same = same || c.Events[i].Start.Equal(h)
+			}
+			if before {
+				st.inside++
+			}
+			if same {
+				st.ties++
+			}
+		}
+		held = held[:0]
+		next := astro.DateStart(loc, c.Last.Year(), c.Last.Month(), c.Last.Day()+1)
+		for i := range c.Events {
+			if !c.Events[i].Start.Before(next) {
+				held = append(held, c.Events[i].Start)
+				st.held++
+			}
+		}
 		events = append(events, c.Events...)
 		for _, n := range c.Notes {
 			doc.Notes = append(doc.Notes, toJSONNote(n))
 		}
+		st.notes += len(c.Notes)
 		return nil
 	})
 	if err != nil {
@@ -71,19 +146,21 @@ func TestEventsJSONStreamedAsEncoder(t *testing.T) {
 	for _, e := range events {
 		doc.Events = append(doc.Events, toJSONEvent(e))
 	}
-	doc.Site = jsonSite{sitePlace: sitePlace{Name: site.Name, Latitude: 69.65, Longitude: 18.96}, TimeZone: "Europe/Oslo", From: "2098-06-01", To: "2099-09-30"}
+	doc.Site = jsonSite{sitePlace: sitePlace{Name: site.Name, Latitude: lat, Longitude: lon}, TimeZone: zone, From: fromText, To: toText}
 	var want bytes.Buffer
 	enc := json.NewEncoder(&want)
 	enc.SetIndent("", "  ")
 	if err := enc.Encode(doc); err != nil {
 		t.Fatal(err)
 	}
-	if chunks < 3 || len(doc.Notes) == 0 || !strings.Contains(out, `"uncertainty_s"`) || !strings.Contains(out, `"dark-window"`) || !strings.Contains(out, `"lamp_s"`) ||
-		!strings.Contains(out, `"sun-altitude:-0.00000000000000000000000000000000000000000000000001"`) {
-		t.Fatalf("the case does not exercise the writer: %d chunks, %d notes", chunks, len(doc.Notes))
-	}
-	if out != want.String() {
-		a, b := strings.Split(out, "\n"), strings.Split(want.String(), "\n")
+	return want.String(), st
+}
+
+// sameLines fails t at the first line where got and want differ.
+func sameLines(t *testing.T, got, want string) {
+	t.Helper()
+	if got != want {
+		a, b := strings.Split(got, "\n"), strings.Split(want, "\n")
 		for i := range min(len(a), len(b)) {
 			if a[i] != b[i] {
 				t.Fatalf("line %d: streamed %q, encoding/json %q", i+1, a[i], b[i])

@@ -589,15 +589,18 @@ func (c *dayCache) appendUTCMillis(b []byte, t time.Time) []byte {
 	return append(b, 'T', h[0], h[1], ':', m[0], m[1], ':', sp[0], sp[1], '.', byte('0'+ms/100), f[0], f[1], 'Z')
 }
 
-// putStamp writes the instant ns (Unix nanoseconds) rounded to the
-// millisecond (feed.ToMillisecond) in UTC into st as jsonTime writes it,
-// YYYY-MM-DDThh:mm:ss.mmmZ: its digits, over a text that has the rest.
+// putStamp writes the instant ns (Unix nanoseconds, 1800–2200) rounded to
+// the millisecond (feed.ToMillisecond) in UTC into st as jsonTime writes
+// it, YYYY-MM-DDThh:mm:ss.mmmZ: its digits, over a text that has the rest.
+// It counts from stampDays days before 1970 (in 1790), so that every
+// division is one of unsigned numbers by a constant: a multiplication.
 func (c *dayCache) putStamp(st *[24]byte, ns int64) {
-	ms, _ := floorDiv(ns+500_000, 1_000_000) // half a millisecond rounds up, as time.Round
-	days, r := floorDiv(ms, 86_400_000)
-	*(*[10]byte)(st[:10]) = *c.dateText(days)
-	s := uint32(r) / 1000
-	f := uint32(r) - s*1000
+	ms := (uint64(ns) + stampDays*86_400_000_000_000 + 500_000) / 1_000_000 // half a millisecond rounds up, as time.Round
+	days := ms / 86_400_000
+	r := uint32(ms - days*86_400_000)
+	*(*[10]byte)(st[:10]) = *c.dateText(int64(days) - stampDays)
+	s := r / 1000
+	f := r - s*1000
 	h := s / 3600
 	s -= h * 3600
 	m := s / 60
@@ -609,6 +612,10 @@ func (c *dayCache) putStamp(st *[24]byte, ns int64) {
 	st[20] = byte('0' + f1)
 	*(*[2]byte)(st[21:23]) = digitPairs[uint8(f-f1*100)]
 }
+
+// stampDays is the number of days putStamp counts from before 1970: its
+// nanoseconds (5.7e18) fit an int64.
+const stampDays = 1 << 16
 
 // digitPairs holds the two digits of 0 to 99 at their index, in a table
 // that a byte indexes without a bounds check.
@@ -678,13 +685,13 @@ func appendRounded(b []byte, x float64, digits int) []byte {
 	if n < 0 {
 		b, n = append(b, '-'), -n
 	}
-	// the digits from the right, two at a time, into d[p:]: the
+	// the digits from the right, two at a time, into d[p:24]: the
 	// fraction's (its zeros on the right dropped, and the point with them
 	// when all are), then the whole part's
 	u := uint64(n)
 	whole, frac := u/pow10i[digits], u%pow10i[digits]
-	var d [24]byte
-	p := len(d)
+	var d [48]byte
+	p := 24
 	if frac != 0 {
 		for frac%10 == 0 {
 			frac, digits = frac/10, digits-1
@@ -713,7 +720,14 @@ func appendRounded(b []byte, x float64, digits int) []byte {
 		p--
 		d[p] = byte('0' + whole)
 	}
-	return append(b, d[p:]...)
+	// with room in b, the 24 bytes from d[p] copied whole, without a
+	// call, and b cut after the digits
+	at := len(b)
+	if cap(b)-at < 24 {
+		return append(b, d[p:24]...)
+	}
+	*(*[24]byte)(b[at : at+24]) = *(*[24]byte)(d[p : p+24])
+	return b[:at+24-p]
 }
 
 var (

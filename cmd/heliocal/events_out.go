@@ -43,14 +43,14 @@ type chunkOut struct {
 // newEventSink returns the writer for format ("json", "csv", "table"), or
 // nil for an unknown format.
 func newEventSink(format string, w io.Writer, s *config.Site, from, to time.Time) eventSink {
-	bw := bufio.NewWriterSize(w, 64<<10)
+	bw := &pieceWriter{Writer: bufio.NewWriterSize(w, writePiece), raw: w}
 	switch format {
 	case "json":
 		return &jsonSink{w: bw, site: s, from: from, to: to}
 	case "csv":
 		return newCSVSink(bw, s)
 	case "table":
-		return newTableSink(bw, s)
+		return newTableSink(bw.Writer, s)
 	}
 	return nil
 }
@@ -65,7 +65,7 @@ func newEventSink(format string, w io.Writer, s *config.Site, from, to time.Time
 // notes' text is made by prepare (jsonPart), each object after a comma:
 // write drops the comma before the document's first.
 type jsonSink struct {
-	w        *bufio.Writer
+	w        *pieceWriter
 	err      error // the first error of a write
 	site     *config.Site
 	from, to time.Time
@@ -338,7 +338,7 @@ func (j *jsonSink) put(b []byte) {
 }
 
 func (j *jsonSink) writeBytes(b []byte) {
-	if err := writePieces(j.w, b); err != nil && j.err == nil {
+	if err := j.w.pieces(b); err != nil && j.err == nil {
 		j.err = err
 	}
 }
@@ -350,16 +350,35 @@ func (j *jsonSink) writeBytes(b []byte) {
 // pause; the system's work for each page written grows with the write).
 const writePiece = 64 << 10
 
-// writePieces writes b to w writePiece bytes at a time.
-func writePieces(w *bufio.Writer, b []byte) error {
-	for len(b) > 0 {
-		n := min(len(b), writePiece)
-		if _, err := w.Write(b[:n]); err != nil {
+// pieceWriter is the buffered output of the events command, which can
+// also write a chunk's text writePiece bytes at a time without copying it
+// into the buffer.
+type pieceWriter struct {
+	*bufio.Writer // of writePiece bytes
+	raw           io.Writer
+}
+
+// pieces writes b in pieces of writePiece bytes: what is buffered first,
+// with the start of b up to a piece, then b's whole pieces directly, and
+// its rest into the buffer.
+func (w *pieceWriter) pieces(b []byte) error {
+	if w.Buffered() > 0 {
+		n := min(len(b), w.Available())
+		w.Write(b[:n])
+		if b = b[n:]; len(b) == 0 {
+			return nil
+		}
+		if err := w.Flush(); err != nil {
 			return err
 		}
-		b = b[n:]
 	}
-	return nil
+	for ; len(b) >= writePiece; b = b[writePiece:] {
+		if _, err := w.raw.Write(b[:writePiece]); err != nil {
+			return err
+		}
+	}
+	_, err := w.Write(b)
+	return err
 }
 
 // specs is spec[from:to], or nil when spec is.
@@ -792,7 +811,7 @@ func appendJSONFloat(b []byte, f float64) []byte {
 // csvSink writes one row per event and per note, by local date (notes
 // first on their date), chunk by chunk.
 type csvSink struct {
-	w   *bufio.Writer
+	w   *pieceWriter
 	cw  *csv.Writer
 	loc *time.Location
 }
@@ -803,7 +822,7 @@ type csvPart struct {
 	cw  *csv.Writer // writes to buf
 }
 
-func newCSVSink(w *bufio.Writer, s *config.Site) *csvSink {
+func newCSVSink(w *pieceWriter, s *config.Site) *csvSink {
 	c := &csvSink{w: w, cw: csv.NewWriter(w), loc: s.TimeZone.Location}
 	_ = c.cw.Write(eventsCSVHeader)
 	return c
@@ -828,7 +847,7 @@ func (c *csvSink) write(_ feed.Chunk, out *chunkOut) error {
 	if err := c.cw.Error(); err != nil {
 		return err
 	}
-	return writePieces(c.w, out.csv.buf.Bytes())
+	return c.w.pieces(out.csv.buf.Bytes())
 }
 
 func (c *csvSink) close() error {

@@ -343,11 +343,12 @@ func (j *jsonSink) writeBytes(b []byte) {
 	}
 }
 
-// writePiece is the most that a write hands to the system at once. A
-// fresh file took the 20-year JSON listing (14.5 MB) in 26 ms when it was
-// written 64 KB at a time, in 27 ms with 32 KB or 128 KB, 34 ms with 256 KB
-// and 43 ms with a chunk's 360 KB at once (medians of 8 runs after a 3 s
-// pause; the system's work for each page written grows with the write).
+// writePiece is the most that a write hands to the system at once. Into a
+// fresh file, the 20-year JSON listing (14.5 MB) took 26 ms when written
+// 64 KB at a time, 27 ms with 32 KB or 128 KB and 34 ms with 256 KB
+// (medians of 8 runs after a 3 s pause each); a chunk's 360 KB at once
+// took about 10 ms longer than 256 KB. (Why larger writes cost the system
+// more was not looked into.)
 const writePiece = 64 << 10
 
 // pieceWriter is the buffered output of the events command, which can

@@ -85,10 +85,10 @@ func TestEventChunksAsWhole(t *testing.T) {
 	}
 }
 
-// The chunks reach fn in order of their dates, each with its own dates,
-// however many goroutines compute them; an error of fn or a cancelled
-// context stops the computation and is returned.
-func TestEventChunksOrderAndStop(t *testing.T) {
+// fiveYearsOfSunrise is the setup of the chunk tests: a Sky for 2027–2031
+// and sunrise at 47.3° N, 8.5° E in UTC.
+func fiveYearsOfSunrise(t *testing.T) (*Sky, Place, []config.KindSpec, time.Time, time.Time) {
+	t.Helper()
 	first, last := time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC), time.Date(2031, 12, 31, 0, 0, 0, 0, time.UTC)
 	sky, err := NewSky(first, last)
 	if err != nil {
@@ -100,9 +100,17 @@ func TestEventChunksOrderAndStop(t *testing.T) {
 	}
 	specs := []config.KindSpec{{Kind: k}}
 	p := Place{Observer: astro.Observer{Latitude: 47.3, Longitude: 8.5}, Location: time.UTC}
+	return sky, p, specs, first, last
+}
+
+// The chunks reach fn in order of their dates, each with its own dates,
+// however many goroutines compute them; an error of fn or a cancelled
+// context stops the computation and is returned.
+func TestEventChunksOrderAndStop(t *testing.T) {
+	sky, p, specs, first, last := fiveYearsOfSunrise(t)
 	defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(4))
 	want := first
-	err = sky.EventChunks(context.Background(), p, specs, first, last, func(c Chunk) error {
+	err := sky.EventChunks(context.Background(), p, specs, first, last, func(c Chunk) error {
 		c.Sort()
 		if !c.First.Equal(want) || len(c.Events) == 0 || !c.Events[0].Date.Equal(c.First) || !c.Events[len(c.Events)-1].Date.Equal(c.Last) {
 			t.Fatalf("chunk %s..%s (events %d), want it to start on %s", c.First.Format(time.DateOnly), c.Last.Format(time.DateOnly), len(c.Events), want.Format(time.DateOnly))
@@ -143,17 +151,7 @@ func TestEventChunksOrderAndStop(t *testing.T) {
 // of prepare is returned in its chunk's turn, after fn has had the chunks
 // before it.
 func TestPreparedChunks(t *testing.T) {
-	first, last := time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC), time.Date(2031, 12, 31, 0, 0, 0, 0, time.UTC)
-	sky, err := NewSky(first, last)
-	if err != nil {
-		t.Fatal(err)
-	}
-	k, err := config.ParseKind("sunrise")
-	if err != nil {
-		t.Fatal(err)
-	}
-	specs := []config.KindSpec{{Kind: k}}
-	p := Place{Observer: astro.Observer{Latitude: 47.3, Longitude: 8.5}, Location: time.UTC}
+	sky, p, specs, first, last := fiveYearsOfSunrise(t)
 	const procs = 3
 	defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(procs))
 	// made is what prepare did: the chunk's first date and its first
@@ -174,7 +172,7 @@ func TestPreparedChunks(t *testing.T) {
 		return nil
 	}
 	want, chunks := first, 0
-	err = PreparedChunks(context.Background(), sky, p, specs, first, last, prepare, func(c Chunk, m *made) error {
+	err := PreparedChunks(context.Background(), sky, p, specs, first, last, prepare, func(c Chunk, m *made) error {
 		if !c.First.Equal(want) || !m.first.Equal(c.First) {
 			t.Fatalf("chunk %d: fn has the chunk of %s and what prepare made of %s, want %s", chunks, c.First.Format(time.DateOnly), m.first.Format(time.DateOnly), want.Format(time.DateOnly))
 		}

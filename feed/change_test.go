@@ -67,8 +67,9 @@ func within(d, want time.Duration) bool {
 // began with a sunrise at 02:14 and ended at 00:03 the next date counts in
 // full on the date of its sunrise, the sunset after midnight carries that
 // day, and each change from the day before is the difference of two such
-// days, not of clock times. (A date that also ends a stretch of midnight
-// Sun, 25 August, adds that stretch's last minutes after its midnight.) The
+// days, not of clock times. A date that also ends a stretch of midnight
+// Sun, 25 August, does not count that stretch's last minutes after its
+// midnight: its day runs from its own sunrise (common practice). The
 // site is invented, at Svalbard's latitude. The instants and day lengths of
 // 16–18 April and 25–26 August are PyEphem's (see pyephemRise16).
 func TestDayLengthAcrossMidnight(t *testing.T) {
@@ -114,10 +115,10 @@ func TestDayLengthAcrossMidnight(t *testing.T) {
 			first, second := "2027-04-16", "2027-04-17"
 			w1, w2 := pyephemSet16.Sub(pyephemRise16), pyephemSet17.Sub(pyephemRise17)
 			if w[0] == "2027-08-20" {
-				// 25 August: the day across midnight and, before it, the
-				// midnight Sun's last minutes after 00:00 CEST (22:00 UTC)
+				// 25 August: the day across midnight, without the
+				// midnight Sun's last minutes after 00:00 CEST before it
 				first, second = "2027-08-25", "2027-08-26"
-				w1 = pyephemSet25.Sub(pyephemRise25) + pyephemLastSet.Sub(time.Date(2027, 8, 24, 22, 0, 0, 0, time.UTC))
+				w1 = pyephemSet25.Sub(pyephemRise25)
 				w2 = pyephemSet26.Sub(pyephemRise26)
 			}
 			if w[0] == "2027-04-08" {
@@ -135,7 +136,6 @@ func TestDayLengthAcrossMidnight(t *testing.T) {
 			}
 			pastMidnight := 0
 			var rise *Event
-			longEnd := time.Time{} // the date on which the midnight Sun last set
 			for i := range events {
 				e := &events[i]
 				switch e.Kind.Name {
@@ -143,17 +143,10 @@ func TestDayLengthAcrossMidnight(t *testing.T) {
 					rise = e
 				case "sunset":
 					if rise == nil || e.Start.Sub(rise.Start) >= 24*time.Hour {
-						longEnd = e.Date
-						continue
+						continue // the midnight Sun's last sunset
 					}
 					day := e.Start.Sub(rise.Start)
 					sum, ok := summary[rise.Date]
-					if rise.Date.Equal(longEnd) {
-						day = sum.DayLength // and more than the span
-						if !ok || sum.DayLength <= e.Start.Sub(rise.Start) {
-							t.Errorf("%s: day length %v, want more than the span %v", rise.Date.Format(time.DateOnly), sum.DayLength, e.Start.Sub(rise.Start))
-						}
-					}
 					if !e.Date.Equal(rise.Date) {
 						pastMidnight++
 					}
@@ -314,5 +307,97 @@ func TestProfilesDayLengthIsTheSummarys(t *testing.T) {
 	// 21 h 48 min 10.879 s, see pyephemRise16)
 	if d, want := ps[7].Daylight, pyephemSet17.Sub(pyephemRise17); !within(d, want) {
 		t.Errorf("17 April: chart day length %v, PyEphem %v", d, want)
+	}
+}
+
+// The date on which the midnight Sun ends, at two sites, against PyEphem
+// (tools/pyephem-checks/values.py, midnight_sun_tails; the same Observer as
+// pyephemRise16's, sea level; the Sun stays above −0.8333° for the 24 h
+// before the first midnight, above −0.52° at 78.92° N and −0.56° at
+// 77.85° S): the midnight Sun's last sunset comes after the date's midnight,
+// and the date's day runs from its own sunrise to the sunset that ends it,
+// after the next midnight (common practice). The minutes from midnight to
+// the midnight Sun's last sunset are not the date's day: its day length, in
+// the daily summary, the sunrise, the chart (Profiles), photoperiod and
+// lighting, is sunrise to sunset alone, and the next date's change is the
+// difference of the two days.
+func TestDayLengthEndOfMidnightSun(t *testing.T) {
+	for _, c := range []struct {
+		name, zone, day0, day1, day2 string
+		lat, lon                     float64
+		lastSet, rise1, set1         time.Time
+		rise2, set2                  time.Time
+	}{
+		{
+			// 78.92° N, 11.93° E, CEST (UTC+2)
+			name: "78.92N", zone: "Arctic/Longyearbyen", day0: "2027-08-26", day1: "2027-08-27", day2: "2027-08-28",
+			lat: 78.92, lon: 11.93,
+			lastSet: time.Date(2027, 8, 26, 22, 59, 39, 23e6, time.UTC),  // 00:59:39 CEST, 27 August
+			rise1:   time.Date(2027, 8, 26, 23, 30, 44, 917e6, time.UTC), // 01:30:45 CEST, 27 August
+			set1:    time.Date(2027, 8, 27, 22, 14, 28, 799e6, time.UTC), // 00:14:29 CEST, 28 August
+			rise2:   time.Date(2027, 8, 28, 0, 15, 22, 857e6, time.UTC),  // 02:15:23 CEST, 28 August
+			set2:    time.Date(2027, 8, 28, 21, 50, 15, 671e6, time.UTC), // 23:50:16 CEST, 28 August
+		},
+		{
+			// McMurdo Station, 77.85° S, 166.67° E, NZDT (UTC+13)
+			name: "77.85S", zone: "Antarctica/McMurdo", day0: "2027-02-19", day1: "2027-02-20", day2: "2027-02-21",
+			lat: -77.85, lon: 166.67,
+			lastSet: time.Date(2027, 2, 19, 12, 41, 48, 49e6, time.UTC),  // 01:41:48 NZDT, 20 February
+			rise1:   time.Date(2027, 2, 19, 13, 34, 39, 625e6, time.UTC), // 02:34:40 NZDT, 20 February
+			set1:    time.Date(2027, 2, 20, 12, 5, 44, 924e6, time.UTC),  // 01:05:45 NZDT, 21 February
+			rise2:   time.Date(2027, 2, 20, 14, 10, 32, 570e6, time.UTC), // 03:10:33 NZDT, 21 February
+			set2:    time.Date(2027, 2, 21, 11, 43, 33, 696e6, time.UTC), // 00:43:34 NZDT, 22 February
+		},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			s := site(t, "polar-"+c.name, c.lat, c.lon, c.zone)
+			sk := sky(t, c.day0, c.day2)
+			events, _, err := sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "sunrise", "sunset", "daily-summary", "photoperiod:23h", "lighting:23h"), date(c.day0), date(c.day2))
+			if err != nil {
+				t.Fatal(err)
+			}
+			var rises, sets []time.Time
+			summary := map[string]Event{}
+			byKind := map[string]Event{} // the first of a kind on day1
+			for _, e := range events {
+				d := e.Date.Format(time.DateOnly)
+				switch e.Kind.Name {
+				case "sunrise":
+					rises = append(rises, e.Start)
+				case "sunset":
+					sets = append(sets, e.Start)
+				case "daily-summary":
+					summary[d] = e
+				}
+				if _, ok := byKind[e.Kind.String()]; !ok && d == c.day1 {
+					byKind[e.Kind.String()] = e
+				}
+			}
+			if len(rises) < 2 || len(sets) < 2 {
+				t.Fatalf("sunrises %v, sunsets %v: want two of each", rises, sets)
+			}
+			for i, p := range [][2]time.Time{{sets[0], c.lastSet}, {rises[0], c.rise1}, {sets[1], c.set1}, {rises[1], c.rise2}} {
+				if !within(p[0].Sub(p[1]), 0) {
+					t.Errorf("crossing %d: heliocal %s, PyEphem %s", i, p[0].Format(time.RFC3339Nano), p[1].Format(time.RFC3339Nano))
+				}
+			}
+			w1, w2 := c.set1.Sub(c.rise1), c.set2.Sub(c.rise2)
+			d0, d1, d2 := summary[c.day0], summary[c.day1], summary[c.day2]
+			if d0.DayLength != 24*time.Hour {
+				t.Errorf("%s (midnight Sun): day %v, want 24 h", c.day0, d0.DayLength)
+			}
+			if !within(d1.DayLength, w1) || !within(d2.DayLength, w2) || !within(d2.DayChange, w2-w1) {
+				t.Errorf("%s: day %v; %s: day %v, change %v; PyEphem: %v; %v, %v", c.day1, d1.DayLength, c.day2, d2.DayLength, d2.DayChange, w1, w2, w2-w1)
+			}
+			for _, k := range []string{"sunrise", "photoperiod:23h", "lighting:23h"} {
+				if e, ok := byKind[k]; !ok || e.DayLength != d1.DayLength {
+					t.Errorf("%s %s: day length %v (listed %v), want the summary's %v", c.day1, k, e.DayLength, ok, d1.DayLength)
+				}
+			}
+			ps, err := sk.Profiles(PlaceOf(s), date(c.day1), date(c.day1))
+			if err != nil || len(ps) != 1 || ps[0].Daylight != d1.DayLength {
+				t.Errorf("%s: chart %+v (%v), want the summary's day length %v", c.day1, ps, err, d1.DayLength)
+			}
+		})
 	}
 }

@@ -25,13 +25,14 @@ const (
 // length of the daily summary and photoperiod is (dayLengths, dayEnds): a
 // daylight period shorter than a day belongs whole to the date of its
 // sunrise, even when its sunset falls after midnight; a longer one counts on
-// each date for its own part. first is the date's first instant of light (its start when
+// each date for its own part, except its end on a date with light of its
+// own, which is that date's day alone. first is the date's first instant of light (its start when
 // the Sun is up from a longer period), last the end of its last one (its end
 // when the Sun stays up). dawnFrom is when the dark before first begins
 // (first itself when there is none), duskTo when the dark after last ends
 // (last itself when there is none); zero when not known. Lamps go only in
-// that dark. touched reports light on the date that belongs to the date
-// before's day.
+// that dark. touched reports light on the date that belongs to an earlier
+// date's day.
 type daylight struct {
 	length           time.Duration
 	first, last      time.Time
@@ -144,6 +145,13 @@ func (c *collector) daylights(alt float64) ([]daylight, error) {
 			a, b := sp.r, sp.s
 			if a < startN {
 				if b == endsBefore { // the date before's day
+					dl.touched = true
+					continue
+				}
+				if (sp.ri < 0 || b-a >= int64(24*time.Hour)) && b < endN && k+1 < len(spans) && spans[k+1].r < endN {
+					// the end of a period of a day or more (the
+					// midnight Sun's), on a date with light of its own:
+					// not the date's day (dayLengths, dropLongTails)
 					dl.touched = true
 					continue
 				}

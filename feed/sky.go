@@ -1541,8 +1541,55 @@ func (c *collector) dayLengths() error {
 				l[i+1] -= spill
 			}
 		}
+		if err := c.dropLongTails(l, alt); err != nil {
+			return err
+		}
 	}
 	c.lengthBefore, c.lengths = l[0], l[1:]
+	return nil
+}
+
+// dropLongTails takes out of l (the dates first-2..last, as aboveFrom
+// with back 2 gives them) the last part of each period above alt that
+// lasted a day or more, from the midnight beginning the date of its sunset
+// to that sunset, when that date has a sunrise of its own: the end of the
+// midnight Sun is not that date's day, which runs from its sunrise to the
+// sunset that ends it. At 78.92° N on 27 August 2027 the midnight Sun sets
+// at 00:59 and the date's day runs from its sunrise at 01:31 to 00:14 the
+// next date: 22 h 44 min, not 23 h 43 min. A date with no sunrise of its
+// own keeps the part (the Sun is up most of it, and it has no other day).
+func (c *collector) dropLongTails(l []time.Duration, alt float64) error {
+	th, err := c.threshold(alt)
+	if err != nil {
+		return err
+	}
+	xs := th.xs
+	base := c.first.Unix()/secondsPerDay - 2 // the day number of first-2
+	starts := c.dayStarts()                  // starts[i]: the midnight ending the date first-2+i
+	for k := range xs {
+		set := &xs[k]
+		if set.Direction != astro.Setting {
+			continue
+		}
+		// instants compared as Unix nanoseconds, as dayEnds does
+		s := set.Time.UnixNano()
+		if k > 0 && (xs[k-1].Direction != astro.Rising || s-xs[k-1].Time.UnixNano() < int64(24*time.Hour)) {
+			continue // a shorter day (dayEnds), or no period above before it
+		}
+		if k == 0 && !th.upFirst {
+			continue
+		}
+		// k == 0: up since before the span, which begins two dates
+		// before the first of l that counts (l[0] is only for the spill)
+		i := int(c.zone().day(set.Time) - base)
+		if i < 1 || i >= len(l) {
+			continue
+		}
+		if k+1 == len(xs) || xs[k+1].Direction != astro.Rising || xs[k+1].Time.UnixNano() >= starts[i].UnixNano() {
+			continue // no sunrise of its own on the date
+		}
+		l[i] -= time.Duration(s - starts[i-1].UnixNano())
+	}
 	return nil
 }
 

@@ -9,7 +9,8 @@ on refraction scaled for the air:
 The tests do not run this script: the values it prints are recorded in them
 with this script's name beside each one (cmd/heliocal/readme_test.go
 TestReadmeDayAcrossMidnight; feed/change_test.go
-TestSummaryShowsSunsetAfterMidnight and TestProfilesDayLengthIsTheSummarys;
+TestSummaryShowsSunsetAfterMidnight, TestProfilesDayLengthIsTheSummarys and
+TestDayLengthEndOfMidnightSun;
 astro/atmosphere_test.go TestRefractionScaling; cmd/heliocal/main_test.go
 TestEventsAzimuth; feed/plan_test.go TestPlanEndFirstAfterStart,
 TestPlanMissingStartPastMidnight and TestPlanDateOnlyAnchor; feed/lighting_test.go
@@ -24,8 +25,9 @@ Definitions, matched to heliocal's:
     ch. 16): 34' * (P/1010) * (283/(273+T)), so the threshold is
     -(34' * f + 16'), again with pressure = 0 and use_center.
   * day length: from a sunrise to the next sunset, even past midnight; on
-    the date the midnight Sun ends (25 August 2027 at 78.2 N) heliocal adds
-    the stretch from local midnight to that last sunset, as printed.
+    the date the midnight Sun ends (25 August 2027 at 78.2 N) the stretch
+    from local midnight to that last sunset is not counted: the date's day
+    runs from its own sunrise (both are printed).
 For comparison the script also prints the shifts with PyEphem's own
 refraction model (pressure/temp set on the Observer, horizon 0, upper limb):
 libastro refracts 37.1' at the horizon at 1010 hPa and 10 C, not 34', so its
@@ -122,6 +124,34 @@ def end_of_midnight_sun():
         fmt_len(span25 + stretch)))
     print("2027-08-26 sunrise %s sunset %s day %.3f s change %+.3f s" % (
         iso(rise26), iso(set26), span26, span26 - span25 - stretch))
+
+
+def midnight_sun_tails():
+    """The date on which the midnight Sun ends, at two sites: its last
+    sunset after local midnight, then the date's own day (sunrise to the
+    sunset after the next midnight), then the next date's."""
+    for name, lat, lon, off, midnight in (
+            ("78.92 N, 11.93 E, CEST (UT + 2 h), 27-28 August 2027", 78.92, 11.93, 2, "2027/8/26 22:00"),
+            ("77.85 S, 166.67 E, NZDT (UT + 13 h), 20-21 February 2027", -77.85, 166.67, 13, "2027/2/19 11:00")):
+        print("# %s, sea level" % name)
+        o = observer(lat, lon, -0.8333)
+        start = ephem.Date(midnight)
+        low = min(_alt(o, ephem.Date(start - k * ephem.minute)) for k in range(0, 24 * 60))
+        o.date = start
+        last = o.next_setting(SUN, use_center=True)
+        o.date = last
+        rise1 = o.next_rising(SUN, use_center=True)
+        o.date = rise1
+        set1 = o.next_setting(SUN, use_center=True)
+        o.date = set1
+        rise2 = o.next_rising(SUN, use_center=True)
+        o.date = rise2
+        set2 = o.next_setting(SUN, use_center=True)
+        print("lowest altitude in the 24 h before the first midnight %.4f deg; midnight Sun sets %s (local %s), %.3f s after midnight" % (
+            low, iso(last), ephem.Date(last + off * HOUR), (last - start) * 86400))
+        for r, st in ((rise1, set1), (rise2, set2)):
+            print("sunrise %s (local %s) sunset %s (local %s) day %.3f s = %s" % (
+                iso(r), ephem.Date(r + off * HOUR), iso(st), ephem.Date(st + off * HOUR), (st - r) * 86400, fmt_len((st - r) * 86400)))
 
 
 def refraction_scaled():
@@ -226,6 +256,7 @@ if __name__ == "__main__":
     print("PyEphem %s (libastro)" % ephem.__version__)
     day_across_midnight()
     end_of_midnight_sun()
+    midnight_sun_tails()
     refraction_scaled()
     solstice_sunrise()
     plan_ends_past_midnight()

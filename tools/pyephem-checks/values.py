@@ -102,20 +102,24 @@ def _alt(o, when):
     return SUN.alt / ephem.degree
 
 
+def passages(o, start, n):
+    """The Sun's centre's next n passages of o's horizon after start, a
+    setting first, then a rising, a setting and on, each found from the one
+    before."""
+    out = []
+    o.date = start
+    for i in range(n):
+        find = o.next_setting if i % 2 == 0 else o.next_rising
+        out.append(find(SUN, use_center=True))
+        o.date = out[-1]
+    return out
+
+
 def end_of_midnight_sun():
     print("# 78.2 N, 15.6 E, sea level; the midnight Sun ends: local dates in CEST (UTC+2)")
     o = observer(78.2, 15.6, -0.8333)
     midnight = ephem.Date("2027/8/24 22:00")  # 00:00 CEST, 25 August
-    o.date = midnight
-    last = o.next_setting(SUN, use_center=True)
-    o.date = last
-    rise25 = o.next_rising(SUN, use_center=True)
-    o.date = rise25
-    set25 = o.next_setting(SUN, use_center=True)
-    o.date = set25
-    rise26 = o.next_rising(SUN, use_center=True)
-    o.date = rise26
-    set26 = o.next_setting(SUN, use_center=True)
+    last, rise25, set25, rise26, set26 = passages(o, midnight, 5)
     stretch = (last - midnight) * 86400
     span25, span26 = (set25 - rise25) * 86400, (set26 - rise26) * 86400
     print("midnight Sun sets %s (CEST %s): %.3f s after midnight" % (iso(last), ephem.Date(last + 2 * HOUR), stretch))
@@ -137,16 +141,7 @@ def midnight_sun_tails():
         o = observer(lat, lon, -0.8333)
         start = ephem.Date(midnight)
         low = min(_alt(o, ephem.Date(start - k * ephem.minute)) for k in range(0, 24 * 60))
-        o.date = start
-        last = o.next_setting(SUN, use_center=True)
-        o.date = last
-        rise1 = o.next_rising(SUN, use_center=True)
-        o.date = rise1
-        set1 = o.next_setting(SUN, use_center=True)
-        o.date = set1
-        rise2 = o.next_rising(SUN, use_center=True)
-        o.date = rise2
-        set2 = o.next_setting(SUN, use_center=True)
+        last, rise1, set1, rise2, set2 = passages(o, start, 5)
         print("lowest altitude in the 24 h before the first midnight %.4f deg; midnight Sun sets %s (local %s), %.3f s after midnight" % (
             low, iso(last), ephem.Date(last + off * HOUR), (last - start) * 86400))
         for r, st in ((rise1, set1), (rise2, set2)):

@@ -63,8 +63,9 @@ func (s *Sky) EventChunks(ctx context.Context, p Place, specs []config.KindSpec,
 // PreparedChunks is s.EventChunks with a step before each chunk's turn:
 // prepare(c, t) is called on the goroutine that computed the chunk *c as
 // soon as it has, at the same time as other chunks' prepare and fn (it may
-// use nothing but c and t), and fn(*c, t) then in order, as EventChunks
-// calls fn, with the chunk as prepare left it (sorted, say) and the same t.
+// change nothing but *c and *t, nor read what fn changes), and fn(*c, t)
+// then in order, as EventChunks calls fn, with the chunk as prepare left
+// it (sorted, say) and the same t.
 // t is the goroutine's own T, the zero value before its first chunk and
 // handed to prepare again with its next one (buffers kept in it are
 // reused), so that there are as many Ts as goroutines, at most GOMAXPROCS.

@@ -1512,8 +1512,9 @@ func (c *collector) hidden(k config.Kind) error {
 // (see dayEnds): at 78° N in April the Sun rises at 02:14 and sets at 00:03
 // the next day, a day of 21 h 48 min on the date of the sunrise, not
 // 21 h 46 min and 2 min more on the next date; a period of more than a day
-// (the Sun up for days) counts on each date for its own part. With a
-// skyline it is the time the Sun is over the skyline within the date.
+// (the Sun up for days) counts on each date for its own part, except its
+// end on a date with a sunrise of its own (dropLongTails). With a skyline
+// it is the time the Sun is over the skyline within the date.
 func (c *collector) dayLengths() error {
 	if c.lengths != nil {
 		return nil

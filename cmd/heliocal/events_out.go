@@ -365,7 +365,9 @@ type pieceWriter struct {
 func (w *pieceWriter) pieces(b []byte) error {
 	if w.Buffered() > 0 {
 		n := min(len(b), w.Available())
-		w.Write(b[:n])
+		if _, err := w.Write(b[:n]); err != nil {
+			return err // an earlier write's, which the buffer keeps
+		}
 		if b = b[n:]; len(b) == 0 {
 			return nil
 		}

@@ -1,9 +1,11 @@
 package main
 
 import (
+	"bufio"
 	"bytes"
 	"context"
 	"encoding/json"
+	"errors"
 	"fmt"
 	"io"
 	"math"
@@ -375,5 +377,61 @@ func TestEventsCSVPlainRows(t *testing.T) {
 	}
 	if len(seen) != len(plainJSONKinds) {
 		t.Errorf("kinds seen %v, want all of %d", seen, len(plainJSONKinds))
+	}
+}
+
+// pieceRecorder records the size of each write and fails every write from
+// the failAt-th on (0: never), having written half of it, as a disk that
+// fills up does.
+type pieceRecorder struct {
+	bytes.Buffer
+	sizes  []int
+	failAt int
+}
+
+var errPieceFull = errors.New("no space left on device")
+
+func (r *pieceRecorder) Write(b []byte) (int, error) {
+	if r.failAt > 0 && len(r.sizes)+1 >= r.failAt {
+		r.sizes = append(r.sizes, -len(b))
+		n, _ := r.Buffer.Write(b[:len(b)/2])
+		return n, errPieceFull
+	}
+	r.sizes = append(r.sizes, len(b))
+	return r.Buffer.Write(b)
+}
+
+// pieces hands the system the text whole, in writes of writePiece bytes
+// (the buffered start topped up to one, then the whole pieces, the rest
+// buffered), and returns a failed write's error at once and at every
+// later call, also for text that fits the buffer.
+func TestPieceWriter(t *testing.T) {
+	text := make([]byte, 3*writePiece+500)
+	for i := range text {
+		text[i] = byte('a' + i%26)
+	}
+	r := &pieceRecorder{}
+	w := &pieceWriter{Writer: bufio.NewWriterSize(r, writePiece), raw: r}
+	for _, b := range [][]byte{text[:100], text[100:]} {
+		if err := w.pieces(b); err != nil {
+			t.Fatal(err)
+		}
+	}
+	if err := w.Flush(); err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.Equal(r.Bytes(), text) || !slices.Equal(r.sizes, []int{writePiece, writePiece, writePiece, 500}) {
+		t.Errorf("writes of %v bytes (%d in all), want %d, %d, %d, 500 making up the text", r.sizes, r.Len(), writePiece, writePiece, writePiece)
+	}
+	r = &pieceRecorder{failAt: 1}
+	w = &pieceWriter{Writer: bufio.NewWriterSize(r, writePiece), raw: r}
+	if err := w.pieces(text[:100]); err != nil {
+		t.Fatalf("buffered text: %v", err)
+	}
+	if err := w.pieces(text[100 : 100+writePiece]); err != errPieceFull {
+		t.Fatalf("a piece that fills the buffer: %v, want %v", err, errPieceFull)
+	}
+	if err := w.pieces(text[:10]); err != errPieceFull {
+		t.Errorf("text that fits the buffer after a failed write: %v, want %v", err, errPieceFull)
 	}
 }

@@ -376,12 +376,11 @@ type orderScratch struct {
 // each position in order (runOf[i] is the run of events[order[i]]). Both
 // are s's, overwritten by the next call.
 //
-// The runs are merged (merger): a site's
-// kinds come in the same order day after day, so the merge takes each
-// event from the run the event one period before it came from, checking
-// only that it does not come before the event taken last; the runs' next
-// events in a ring in order of start (runRing) find the order where that
-// pattern breaks. A run out of order (or more runs than the ring holds)
+// The runs are merged (merger): a site's kinds come in the same order day
+// after day, so the merge takes each event from the run the event one
+// period before it came from, checking only that it does not come before
+// the event taken last; the runs' next events in a ring in order of start
+// (runRing) find the order where that pattern breaks. A run out of order (or more runs than the ring holds)
 // sends all the positions through stableOrder instead.
 func orderRuns(events []Event, runs []int32, s *orderScratch) (order, runOf []int32) {
 	n := len(events)

@@ -18,9 +18,9 @@ import (
 	"heliocal/feed"
 )
 
-// The events command writes its output chunk by chunk as feed.EventChunks
-// computes it (JSON, CSV or the table), so memory does not grow with the
-// span. An eventSink is one output format: it formats a chunk on the
+// The events command writes its output chunk by chunk as
+// feed.PreparedChunks computes it (JSON, CSV or the table), so memory does
+// not grow with the span. An eventSink is one output format: it formats a chunk on the
 // goroutine that computed it, while other chunks are computed and written
 // (prepare, into that goroutine's chunkOut), and writes it in the order
 // of the chunks (write), doing then only what depends on the chunks

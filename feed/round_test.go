@@ -2,6 +2,7 @@ package feed
 
 import (
 	"math/rand"
+	"strings"
 	"testing"
 	"time"
 )
@@ -84,12 +85,13 @@ func TestAppendHM(t *testing.T) {
 }
 
 // TestAppendStamp: a plan's anchor instant, written from the zone cache,
-// reads as the standard library's Format writes it ("Mon 2 Jan 2006 15:04
-// MST", the clock cut to the minute), in zones with offsets of half and
+// reads as the standard library's Format writes it ("Mon 2 Jan 2006 15:04",
+// the clock cut to the minute) with the zone's label (ZoneLabel of the
+// abbreviation Format's "MST" gives), in zones with offsets of half and
 // three quarters of an hour, numeric abbreviations ("-03") and clocks that
 // skip midnight, before 1970 and after, on both sides of their changes.
 func TestAppendStamp(t *testing.T) {
-	const layout = "Mon 2 Jan 2006 15:04 MST"
+	const layout = "Mon 2 Jan 2006 15:04 "
 	for _, name := range []string{"Europe/Vienna", "America/Santiago", "America/Havana", "Asia/Kolkata",
 		"Pacific/Chatham", "Australia/Lord_Howe", "Arctic/Longyearbyen", "UTC"} {
 		loc, err := time.LoadLocation(name)
@@ -102,7 +104,7 @@ func TestAppendStamp(t *testing.T) {
 			for _, d := range []time.Duration{0, 59*time.Second + 999*time.Millisecond, 17 * time.Hour} {
 				at := time.Unix(u, 0).Add(d)
 				got := string(z.appendStamp([]byte("x"), at))
-				if want := "x" + at.In(loc).Format(layout); got != want {
+				if want := "x" + at.In(loc).Format(layout) + ZoneLabel(at.In(loc).Format("MST")); got != want {
 					t.Fatalf("%s: appendStamp(%v) = %q, want %q", name, at, got, want)
 				}
 				n++
@@ -116,7 +118,7 @@ func TestAppendStamp(t *testing.T) {
 			}
 			for _, d := range []time.Duration{-time.Hour, -time.Second, 0, time.Second, 30 * time.Minute, time.Hour} {
 				x := end.Add(d)
-				if got, want := string(z.appendStamp(nil, x)), x.In(loc).Format(layout); got != want {
+				if got, want := string(z.appendStamp(nil, x)), x.In(loc).Format(layout)+ZoneLabel(x.In(loc).Format("MST")); got != want {
 					t.Fatalf("%s: appendStamp(%v) = %q, want %q", name, x, got, want)
 				}
 				n++
@@ -125,6 +127,42 @@ func TestAppendStamp(t *testing.T) {
 		}
 		if n < 3000 {
 			t.Fatalf("%s: %d instants", name, n)
+		}
+	}
+}
+
+// ZoneLabel names a zone as its abbreviation where the time zone database
+// has one, and spells out the numeric ones it gives where it has none
+// (IANA tz database: America/Santiago "-04" and "-03", Asia/Kathmandu
+// "+0545", Asia/Kolkata "IST", Europe/Vienna "CET"), as an offset from
+// UTC with a true minus sign (common practice: "UTC−03", "UTC+05:45").
+func TestZoneLabel(t *testing.T) {
+	for _, c := range []struct {
+		zone string
+		at   time.Time
+		want string
+	}{
+		{"America/Santiago", time.Date(2026, 9, 5, 12, 0, 0, 0, time.UTC), "UTC−04"},
+		{"America/Santiago", time.Date(2026, 9, 7, 12, 0, 0, 0, time.UTC), "UTC−03"},
+		{"Asia/Kathmandu", time.Date(2026, 9, 5, 12, 0, 0, 0, time.UTC), "UTC+05:45"},
+		{"Asia/Kolkata", time.Date(2026, 9, 5, 12, 0, 0, 0, time.UTC), "IST"},
+		{"Europe/Vienna", time.Date(2026, 1, 5, 12, 0, 0, 0, time.UTC), "CET"},
+		{"UTC", time.Date(2026, 1, 5, 12, 0, 0, 0, time.UTC), "UTC"},
+	} {
+		loc, err := time.LoadLocation(c.zone)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got := zoneLabelOf(c.at.In(loc)); got != c.want {
+			t.Errorf("%s at %s: %q, want %q", c.zone, c.at.Format(time.RFC3339), got, c.want)
+		}
+		if got := LocalClock(c.at, loc, true); !strings.HasSuffix(got, " "+c.want) {
+			t.Errorf("LocalClock in %s: %q, want it to end in %q", c.zone, got, c.want)
+		}
+	}
+	for _, s := range []string{"", "+", "-3", "-0a", "+05300", "GMT"} {
+		if got := ZoneLabel(s); got != s {
+			t.Errorf("ZoneLabel(%q) = %q, want it unchanged", s, got)
 		}
 	}
 }

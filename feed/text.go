@@ -29,12 +29,53 @@ func dirString(d astro.Direction) string {
 }
 
 // localClock formats an instant as site-local clock time with the zone
-// abbreviation, e.g. "06:47:12 CET".
+// abbreviation, e.g. "06:47:12 CET" (ZoneLabel).
 func localClock(t time.Time, loc *time.Location) string {
 	lt := ToSecond(t).In(loc)
 	h, m, sec := lt.Clock()
-	zone, _ := lt.Zone()
-	return string(appendClockZone(make([]byte, 0, 16), h, m, sec, zone))
+	return string(appendClockZone(make([]byte, 0, 16), h, m, sec, zoneLabelOf(lt)))
+}
+
+// ZoneLabel is how the texts name a zone at an instant: its abbreviation
+// ("CET", "EDT"), or, where the time zone database has none and gives the
+// offset instead ("-03", "+0530"), that offset from UTC with a true minus
+// sign: "UTC−03", "UTC+05:30". A bare "-03" after a clock reads as a
+// subtraction ("04:30:00 -03–06:55:13").
+func ZoneLabel(abbr string) string {
+	if len(abbr) != 3 && len(abbr) != 5 || abbr[0] != '+' && abbr[0] != '-' {
+		return abbr
+	}
+	for _, c := range abbr[1:] {
+		if c < '0' || c > '9' {
+			return abbr
+		}
+	}
+	sign := "+"
+	if abbr[0] == '-' {
+		sign = "−"
+	}
+	if len(abbr) == 3 {
+		return "UTC" + sign + abbr[1:]
+	}
+	return "UTC" + sign + abbr[1:3] + ":" + abbr[3:]
+}
+
+// zoneLabelOf is the ZoneLabel of t's zone at t.
+func zoneLabelOf(t time.Time) string {
+	abbr, _ := t.Zone()
+	return ZoneLabel(abbr)
+}
+
+// LocalClock is t in loc as "15:04:05" and the zone's label (ZoneLabel):
+// "06:47:12 CET", "06:21:46 UTC−03"; to the minute ("06:47 CET") when
+// seconds is false. t is used as given (round it first).
+func LocalClock(t time.Time, loc *time.Location, seconds bool) string {
+	lt := t.In(loc)
+	layout := "15:04 "
+	if seconds {
+		layout = "15:04:05 "
+	}
+	return lt.Format(layout) + zoneLabelOf(lt)
 }
 
 // appendClockZone appends a clock to the second and a zone's
@@ -93,6 +134,7 @@ func (z *zoneCache) lookup(u int64) {
 	}
 	lt := time.Unix(u, 0).In(z.loc)
 	name, off := lt.Zone()
+	name = ZoneLabel(name)
 	from, to := lt.ZoneBounds()
 	z.name, z.off, z.from, z.to = name, int64(off), math.MinInt64, math.MaxInt64
 	if !from.IsZero() {
@@ -130,9 +172,9 @@ func (z *zoneCache) appendClock(b []byte, t time.Time) []byte {
 	return appendClockZone(b, s/3600, s/60%60, s%60, name)
 }
 
-// appendStamp appends t as t.In(z.loc).Format("Mon 2 Jan 2006 15:04 MST")
-// writes it (the clock to the minute, cut, not rounded), the zone looked
-// up in z: "Sat 9 Jan 2027 17:31 CET".
+// appendStamp appends t as t.In(z.loc).Format("Mon 2 Jan 2006 15:04 ")
+// writes it (the clock to the minute, cut, not rounded) and the zone's
+// label looked up in z (ZoneLabel): "Sat 9 Jan 2027 17:31 CET".
 func (z *zoneCache) appendStamp(b []byte, t time.Time) []byte {
 	u := t.Unix()
 	name, off := z.at(u)
@@ -140,7 +182,8 @@ func (z *zoneCache) appendStamp(b []byte, t time.Time) []byte {
 	d := time.Unix(days*secondsPerDay, 0).UTC()
 	y, m, day := d.Date()
 	if name == "" || y < 1000 || y > 9999 {
-		return t.In(z.loc).AppendFormat(b, "Mon 2 Jan 2006 15:04 MST")
+		lt := t.In(z.loc)
+		return append(lt.AppendFormat(b, "Mon 2 Jan 2006 15:04 "), zoneLabelOf(lt)...)
 	}
 	b = append(append(b, d.Weekday().String()[:3]...), ' ')
 	b = append(append(strconv.AppendInt(b, int64(day), 10), ' '), m.String()[:3]...)
@@ -1290,7 +1333,7 @@ func describeSummary(s *siteInfo, d time.Time, length, delta time.Duration, evs 
 	}
 	first := true
 	for i, e := range evs {
-		fmt.Fprintf(&b, "%s %s", plainNames[e.Kind.Name], ToMinute(e.Start).In(loc).Format("15:04 MST"))
+		fmt.Fprintf(&b, "%s %s", plainNames[e.Kind.Name], LocalClock(ToMinute(e.Start), loc, false))
 		switch {
 		case e.Kind.Name == "sunset":
 			switch {

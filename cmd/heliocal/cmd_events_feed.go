@@ -293,12 +293,14 @@ func writeEntriesTable(w io.Writer, s *config.Site, cal *feed.Calendar) error {
 		e := &cal.Entries[i]
 		when := "all day"
 		if !e.AllDay {
-			when = feed.ToSecond(e.Start).In(loc).Format("15:04:05 MST") + feed.DayMark(e.Start, e.Date, loc)
+			when = feed.LocalClock(feed.ToSecond(e.Start), loc, true) + feed.DayMark(e.Start, e.Date, loc)
 			switch {
+			// " – ": the start ends in its zone's label ("UTC−04",
+			// "CET"), which a bare dash would run into
 			case e.Facts.Open: // the end of the listing, not the Sun's leaving the band
-				when += "–past the end of the listing"
+				when += " – past the end of the listing"
 			case !e.End.IsZero():
-				when += "–" + clock(e.End, loc) + feed.DayMark(e.End, e.Date, loc)
+				when += " – " + clock(e.End, loc) + feed.DayMark(e.End, e.Date, loc)
 			}
 		}
 		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\n", e.Date.Format("2006-01-02 Mon"), when, e.Kind, e.Title)

@@ -899,7 +899,7 @@ func (t *tableSink) prepare(ch *feed.Chunk, out *chunkOut) error {
 		e := r.event
 		at := "all day"
 		if !e.DateOnly() {
-			at = feed.ToSecond(e.Start).In(t.loc).Format("15:04:05 MST") + feed.DayMark(e.Start, e.Date, t.loc)
+			at = feed.LocalClock(feed.ToSecond(e.Start), t.loc, true) + feed.DayMark(e.Start, e.Date, t.loc)
 		}
 		p.rows = append(p.rows, [4]string{e.Date.Format("2006-01-02 Mon"), at, e.Kind.String(), detailsAt(e, t.loc, t.o)})
 	}

@@ -173,7 +173,7 @@ func TestSpanOfDaysInDays(t *testing.T) {
 }
 
 // A feed's entries (--feed) mark the open span of TestOpenSpanMarked as the
-// events do: the table's time reads "–past the end of the listing", not the
+// events do: the table's time reads " – past the end of the listing", not the
 // end of the listing as a time, and JSON and CSV have "open".
 func TestFeedEntryOpenSpanMarked(t *testing.T) {
 	cfg := writeConfig(t, `sites:
@@ -186,7 +186,7 @@ feeds:
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, errOut)
 	}
-	if !regexp.MustCompile(`(?m)^2026-11-10 Tue  02:24:1\d NZDT–past the end of the listing  sun-band:5\.\.40  Sun between \+5° and \+40° \(around the clock\)$`).MatchString(table) {
+	if !regexp.MustCompile(`(?m)^2026-11-10 Tue  02:24:1\d NZDT – past the end of the listing  sun-band:5\.\.40  Sun between \+5° and \+40° \(around the clock\)$`).MatchString(table) {
 		t.Errorf("the table does not mark the open span:\n%s", table)
 	}
 	code, js, errOut := runCLI(t, append(args, "--format", "json")...)

@@ -186,7 +186,7 @@ def main():
         for name, cmd in (("heliocal", hc), ("pyephem", py)):
             count[name] = timed(cmd, "pipe")[2]
             print("events (counted in a run to a pipe, not timed): %-8s %d" % (name, count[name]), flush=True)
-    saved = tempfile.TemporaryFile()  # heliocal's output, for cat
+    saved = tempfile.TemporaryFile() if a.floor else None  # heliocal's output, for cat
     rows = {"heliocal": [], "pyephem": [], "cat": []}
     order = [("heliocal", hc), ("pyephem", py)]
     if a.floor:
@@ -199,7 +199,7 @@ def main():
                 saved.seek(0)
                 stdin = saved
             wall, cpu, n, out = timed(cmd, a.to, stdin)
-            if name == "heliocal" and i == 0 and a.to != "null":
+            if name == "heliocal" and i == 0 and a.floor:
                 saved.write(out)
                 saved.flush()
             if a.to == "null":
@@ -222,6 +222,7 @@ def main():
               " PyEphem's median wall / 300: %.1f ms"
               % (statistics.median(w for w, c, n in rows["cat"]) * 1000,
                  statistics.median(w for w, c, n in rows["pyephem"]) * 1000 / 300))
+
 
 if __name__ == "__main__":
     main()

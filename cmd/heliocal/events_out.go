@@ -815,7 +815,6 @@ func appendJSONFloat(b []byte, f float64) []byte {
 // first on their date), chunk by chunk.
 type csvSink struct {
 	w   *pieceWriter
-	cw  *csv.Writer
 	loc *time.Location
 }
 
@@ -825,10 +824,13 @@ type csvPart struct {
 	cw  *csv.Writer // writes to buf
 }
 
+// newCSVSink writes the header into w's buffer, which is empty: that
+// cannot fail.
 func newCSVSink(w *pieceWriter, s *config.Site) *csvSink {
-	c := &csvSink{w: w, cw: csv.NewWriter(w), loc: s.TimeZone.Location}
-	_ = c.cw.Write(eventsCSVHeader)
-	return c
+	cw := csv.NewWriter(w)
+	_ = cw.Write(eventsCSVHeader)
+	cw.Flush()
+	return &csvSink{w: w, loc: s.TimeZone.Location}
 }
 
 func (c *csvSink) prepare(ch *feed.Chunk, out *chunkOut) error {
@@ -846,18 +848,10 @@ func (c *csvSink) prepare(ch *feed.Chunk, out *chunkOut) error {
 }
 
 func (c *csvSink) write(_ feed.Chunk, out *chunkOut) error {
-	c.cw.Flush() // the header, before the first chunk
-	if err := c.cw.Error(); err != nil {
-		return err
-	}
 	return c.w.pieces(out.csv.buf.Bytes())
 }
 
 func (c *csvSink) close() error {
-	c.cw.Flush()
-	if err := c.cw.Error(); err != nil {
-		return err
-	}
 	return c.w.Flush()
 }
 

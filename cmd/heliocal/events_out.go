@@ -488,8 +488,8 @@ func (p *jsonPart) event(b []byte, e *feed.Event, k *jsonKind) []byte {
 // through k's text t for e's direction (which begins with the comma): the
 // text is copied whole, e's start and date are written over its zeros,
 // and its numbers follow. b has room for the whole text array and the
-// numbers (jsonEventRoom). The start
-// is cut from Unix nanoseconds (every instant astro serves, 1800–2200).
+// numbers (jsonEventRoom). The start is cut from Unix nanoseconds (every
+// instant astro serves, 1800–2200).
 func (p *jsonPart) plainEvent(b []byte, k *jsonKind, t *jsonTemplate, e *feed.Event) []byte {
 	n := len(b)
 	w := (*[jsonTemplateSize]byte)(b[n : n+jsonTemplateSize])

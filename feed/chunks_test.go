@@ -206,6 +206,8 @@ func TestPreparedChunks(t *testing.T) {
 		chunks++
 		return nil
 	})
+	// the chunks of ChunkDays (184) dates before 2029: from 2027-01-01,
+	// 2027-07-04, 2028-01-04 and 2028-07-06 (the next from 2029-01-06)
 	if err != stop || chunks != 4 {
 		t.Errorf("prepare's error: got %v after %d chunks, want it after 4", err, chunks)
 	}

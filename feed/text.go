@@ -28,13 +28,9 @@ func dirString(d astro.Direction) string {
 	return d.String()
 }
 
-// localClock formats an instant as site-local clock time with the zone
-// abbreviation, e.g. "06:47:12 CET" (ZoneLabel).
-func localClock(t time.Time, loc *time.Location) string {
-	lt := ToSecond(t).In(loc)
-	h, m, sec := lt.Clock()
-	return string(appendClockZone(make([]byte, 0, 16), h, m, sec, zoneLabelOf(lt)))
-}
+// localClock formats an instant, rounded to the second (ToSecond), as
+// site-local clock time with the zone's label: LocalClock, "06:47:12 CET".
+func localClock(t time.Time, loc *time.Location) string { return LocalClock(ToSecond(t), loc, true) }
 
 // ZoneLabel is how the texts name a zone at an instant: its abbreviation
 // ("CET", "EDT"), or, where the time zone database has none and gives the
@@ -71,11 +67,11 @@ func zoneLabelOf(t time.Time) string {
 // seconds is false. t is used as given (round it first).
 func LocalClock(t time.Time, loc *time.Location, seconds bool) string {
 	lt := t.In(loc)
-	layout := "15:04 "
 	if seconds {
-		layout = "15:04:05 "
+		h, m, sec := lt.Clock()
+		return string(appendClockZone(make([]byte, 0, 16), h, m, sec, zoneLabelOf(lt)))
 	}
-	return lt.Format(layout) + zoneLabelOf(lt)
+	return lt.Format("15:04 ") + zoneLabelOf(lt)
 }
 
 // appendClockZone appends a clock to the second and a zone's

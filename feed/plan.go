@@ -107,8 +107,9 @@ func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed,
 	if err != nil {
 		return nil, nil, nil, err
 	}
-	col.keyDates = dateTexts.get(daysBetween(col.first, col.last) + 1)[:daysBetween(col.first, col.last)+1]
-	defer func() { dateTexts.put(col.keyDates) }()
+	days := daysBetween(col.first, col.last) + 1
+	col.keyDates = dateTexts.get(days)[:days]
+	defer dateTexts.put(col.keyDates)
 	pd, err := sky.allPlanDates(col, parsed)
 	if err != nil {
 		return nil, nil, nil, err

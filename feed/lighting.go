@@ -235,19 +235,20 @@ func (c *collector) lighting(k config.Kind) error {
 		needs[i] = dl.length < k.DayLength && !(dl.length == 0 && dl.touched)
 	}
 	lim := limitsOf(spec)
-	if lamps := spec.Lamps; lamps != config.LampsBoth {
-		// one period a date: its limit from the table of the dates'
+	minLen := lampMinimum(spec.MinDuration.D())
+	lamps := spec.Lamps
+	if lamps == "" {
+		lamps = config.LampsEvening
+	}
+	if lamps != config.LampsBoth {
+		// one period a date: its limit from the table of the limit's
+		// instants by date (limitNanos)
 		if lim.hasOff {
 			lim.offAt, lim.starts = c.limitNanos(lim.off, lim.starts)
 		}
 		if lim.hasOn {
 			lim.onAt, lim.starts = c.limitNanos(lim.on, lim.starts)
 		}
-	}
-	minLen := lampMinimum(spec.MinDuration.D())
-	lamps := spec.Lamps
-	if lamps == "" {
-		lamps = config.LampsEvening
 	}
 	dates := c.dayDates()
 	for i := range days {

@@ -1312,21 +1312,22 @@ func describeSummary(s *siteInfo, d time.Time, length, delta time.Duration, evs 
 			b.WriteString(t + ".\n")
 		}
 	}
-	// staysUp: the date's last sunrise has no sunset after it, not even
-	// one after midnight (evs has that one when it ends the date's day):
-	// the Sun stays up for more than a day, and the day length runs to
-	// midnight
-	staysUp := false
+	// staysUp: the date's last sunrise, evs[upFrom], has no sunset after
+	// it, not even one after midnight (evs has that one when it ends the
+	// date's day): the Sun stays up for more than a day, and the day
+	// length runs to midnight
+	upFrom := -1
 	if len(s.Skyline) == 0 {
-		for _, e := range evs {
+		for i, e := range evs {
 			switch e.Kind.Name {
 			case "sunrise":
-				staysUp = true
+				upFrom = i
 			case "sunset":
-				staysUp = false
+				upFrom = -1
 			}
 		}
 	}
+	staysUp := upFrom >= 0
 	first := true
 	for i, e := range evs {
 		fmt.Fprintf(&b, "%s %s", plainNames[e.Kind.Name], LocalClock(ToMinute(e.Start), loc, false))
@@ -1339,7 +1340,7 @@ func describeSummary(s *siteInfo, d time.Time, length, delta time.Duration, evs 
 				b.WriteString(" (ending the day before)")
 			}
 			first = false
-		case staysUp && e.Kind.Name == "sunrise" && !slices.ContainsFunc(evs[i+1:], func(e Event) bool { return e.Kind.Name == "sunrise" }):
+		case i == upFrom:
 			b.WriteString(" (the Sun then stays up for more than a day: midnight sun)")
 		}
 		b.WriteByte('\n')

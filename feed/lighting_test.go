@@ -717,7 +717,9 @@ func TestLightingMeaningOncePerCalendar(t *testing.T) {
 // 4.1.4 (tools/pyephem-checks/values.py, lamp_periods): 27 February 2027
 // 06:12:31.2 and 16:40:55.0 UT (07:12:31 and 17:40:55 CET), so the
 // morning period left after 07:00 is 12 min 31 s ("13 min"); 9 October
-// 2027 civil dawn 05:00:57.6 UT (07:00:58 CEST), a morning period of 58 s.
+// 2027 civil dawn 05:00:57.6 UT (07:00:58 CEST), a morning period of 58 s,
+// and civil dusk 18:54:26 CEST, where the evening period starts (the
+// same line of lamp_periods).
 func TestLightingMinimumNamesTheDroppedPeriod(t *testing.T) {
 	s := site(t, "polar-shed", 78.92, 11.93, "Arctic/Longyearbyen")
 	sk := sky(t, "2027-01-01", "2027-12-31")

@@ -789,7 +789,7 @@ func TestLightingTitleAfterMidnight(t *testing.T) {
 	}
 	re := regexp.MustCompile(`^Lamps on 17:4[3-5]–00:3[5-7] \+1 day \(6 h 5[1-3] min, to reach 16 h\)$`)
 	if len(es) != 1 || !re.MatchString(es[0].Title) {
-		t.Fatalf("%d entries, first %q; want %s", len(es), es[0].Title, re)
+		t.Fatalf("%+v; want one entry titled %s", es, re)
 	}
 }
 

@@ -742,9 +742,10 @@ type lightingText struct {
 	// line, without its newline ("; target 16 h.\nClipped (off no later
 	// than 23:00): the target is not reached today.")
 	tail [2][2][2]string
-	// lead[pi]: "Morning lamps on at ", "Evening lamps on at "
-	lead [2]string
 }
+
+// lampLeads begin the description of a morning (0) or evening (1) period.
+var lampLeads = [2]string{"Morning lamps on at ", "Evening lamps on at "}
 
 // lightingKey is what a lighting kind's text depends on.
 type lightingKey struct {
@@ -787,7 +788,6 @@ func (w *entryWriter) lightingText(spec *config.KindSpec) *lightingText {
 		lt.clippedShort[i] = "Clipped (" + lt.partLimit(part) + "): the target is not reached today.\n"
 		lt.clippedMade[i] = "Clipped (" + lt.partLimit(part) + "); the " + otherPart(part) + " lamps make up the difference: the target is reached.\n"
 	}
-	lt.lead = [2]string{"Morning lamps on at ", "Evening lamps on at "}
 	for pi := range lt.tail {
 		for clipped, last := range [2][2]string{{"", "The target is not reached today.\n"}, {lt.clippedMade[pi], lt.clippedShort[pi]}} {
 			for short, line := range last {
@@ -861,7 +861,7 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		// a morning or evening period that makes up for no other (nearly
 		// every period): the text below, its last lines written once
 		// per feed
-		b := append(dst, lt.lead[pi]...)
+		b := append(dst, lampLeads[pi]...)
 		b = append(b, byte('0'+on.h/10), byte('0'+on.h%10), ':', byte('0'+on.m/10), byte('0'+on.m%10), ':', byte('0'+on.s/10), byte('0'+on.s%10), ' ')
 		b = append(b, on.zone...)
 		if e.Clipped && pi == 0 && on.second() != lt.onSec {

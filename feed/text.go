@@ -74,15 +74,15 @@ func LocalClock(t time.Time, loc *time.Location, seconds bool) string {
 	return lt.Format("15:04 ") + zoneLabelOf(lt)
 }
 
-// appendClockZone appends a clock to the second and a zone's
-// abbreviation, "06:47:12 CET": the one way the descriptions write an
+// appendClockZone appends a clock to the second and a zone's label
+// (ZoneLabel), "06:47:12 CET": the one way the descriptions write an
 // instant (localClock, zoneCache.appendClock, the lamp periods).
 func appendClockZone(b []byte, h, m, sec int, zone string) []byte {
 	b = append(b, byte('0'+h/10), byte('0'+h%10), ':', byte('0'+m/10), byte('0'+m%10), ':', byte('0'+sec/10), byte('0'+sec%10), ' ')
 	return append(b, zone...)
 }
 
-// zoneCache answers a zone's offset and abbreviation at an instant from
+// zoneCache answers a zone's offset and label (ZoneLabel) at an instant from
 // the last period of the zone it looked up (the instants from..to-1, Unix
 // seconds, in which the zone keeps one offset and name), so that the
 // entries of a feed, written in time order kind after kind, look the zone
@@ -110,7 +110,7 @@ func newZoneCache(loc *time.Location) *zoneCache {
 	return &zoneCache{loc: loc, from: 1, to: 0}
 }
 
-// at returns the zone's abbreviation and offset (seconds east of UTC) at
+// at returns the zone's label (ZoneLabel) and offset (seconds east of UTC) at
 // the Unix second u.
 func (z *zoneCache) at(u int64) (string, int64) {
 	if u < z.from || u >= z.to {

@@ -240,15 +240,13 @@ func (c *collector) lighting(k config.Kind) error {
 	if lamps == "" {
 		lamps = config.LampsEvening
 	}
-	if lamps != config.LampsBoth {
-		// one period a date: its limit from the table of the limit's
-		// instants by date (limitNanos)
-		if lim.hasOff {
-			lim.offAt, lim.starts = c.limitNanos(lim.off, lim.starts)
-		}
-		if lim.hasOn {
-			lim.onAt, lim.starts = c.limitNanos(lim.on, lim.starts)
-		}
+	// one period a date: the limit of its side from the table of the
+	// limit's instants by date (limitNanos)
+	switch {
+	case lamps == config.LampsEvening && lim.hasOff:
+		lim.offAt, lim.starts = c.limitNanos(lim.off)
+	case lamps == config.LampsMorning && lim.hasOn:
+		lim.onAt, lim.starts = c.limitNanos(lim.on)
 	}
 	dates := c.dayDates()
 	for i := range days {
@@ -513,9 +511,9 @@ type lampLimits struct {
 	on, off       time.Duration
 	hasOn, hasOff bool
 	text          string // "lamps on no earlier than 05:30, off no later than 22:00"
-	// onAt and offAt are the limits' instants on the collector's dates
-	// (limitNanos), for the lamps of one period a date, and starts the
-	// dates' first instants, all as Unix nanoseconds; nil otherwise
+	// onAt (lamps: morning) or offAt (evening) is its limit's instants on
+	// the collector's dates (limitNanos), and starts the dates' first
+	// instants, all as Unix nanoseconds; nil otherwise
 	onAt, offAt, starts []int64
 }
 
@@ -523,14 +521,12 @@ type lampLimits struct {
 // dates, indexed as dayStarts, as Unix nanoseconds, where clockOnDay makes
 // it from the date's first instant (the zone keeps one offset from a day
 // before that instant to two days after it), 0 on the other dates; and
-// the dates' first instants as Unix nanoseconds (startsN, made when nil).
-func (c *collector) limitNanos(clock time.Duration, startsN []int64) ([]int64, []int64) {
+// the dates' first instants as Unix nanoseconds.
+func (c *collector) limitNanos(clock time.Duration) ([]int64, []int64) {
 	starts := c.dayStarts()
-	if startsN == nil {
-		startsN = make([]int64, len(starts))
-		for j := range starts {
-			startsN[j] = starts[j].UnixNano()
-		}
+	startsN := make([]int64, len(starts))
+	for j := range starts {
+		startsN[j] = starts[j].UnixNano()
 	}
 	out := make([]int64, len(starts))
 	z := c.zone()

@@ -347,7 +347,9 @@ func TestOffsetPastMidnight(t *testing.T) {
 			t.Errorf("offset %v: %+v\nwant a description starting %q", tc.offset, es, tc.want)
 		}
 	}
-	// an offset before the date's first instant: the day before
+	// an offset before the date's first instant: the day before. Sunrise
+	// on 13 March 2028: 11:39:41 UT (PyEphem 4.1.4, the same observer),
+	// 06:39:41 CDT; 8 h earlier is 22:39:41 CDT on Sunday 12 March
 	rise := mustKinds(t, "sunrise")[0]
 	es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{{Kind: rise, Offset: config.Duration(-8 * time.Hour)}}, date("2028-03-13"), date("2028-03-13"))
 	if err != nil {

@@ -303,8 +303,9 @@ type dayCrossings struct {
 	up bool
 }
 
-// sunKinds are the kinds a plan time can follow straight from the Sun's
-// crossings: direction and note family (see collector.add).
+// sunKinds are the kinds that list the Sun's crossings of one altitude
+// (collector.crossingKind) and that a plan time can follow straight from
+// them: altitude, direction and note family (see collector.add).
 var sunKinds = map[string]struct {
 	alt    float64 // 0: the site's rise and set altitude
 	dir    astro.Direction

@@ -952,30 +952,20 @@ func (c *collector) compute(k config.Kind) error {
 }
 
 // crossingKind returns the threshold, direction (0: both) and family of a
-// kind that lists the Sun's crossings of one altitude (collector.crossings);
-// false for the other kinds.
+// kind that lists the Sun's crossings of one altitude (collector.crossings):
+// the Sun kinds of sunKinds and sun-altitude; false for the other kinds.
 func (c *collector) crossingKind(k config.Kind) (alt float64, dir astro.Direction, family string, ok bool) {
-	switch k.Name {
-	case "sunrise":
-		return c.p.riseAlt(), astro.Rising, "sun-horizon", true
-	case "sunset":
-		return c.p.riseAlt(), astro.Setting, "sun-horizon", true
-	case "civil-dawn":
-		return astro.CivilTwilight, astro.Rising, "civil", true
-	case "civil-dusk":
-		return astro.CivilTwilight, astro.Setting, "civil", true
-	case "nautical-dawn":
-		return astro.NauticalTwilight, astro.Rising, "nautical", true
-	case "nautical-dusk":
-		return astro.NauticalTwilight, astro.Setting, "nautical", true
-	case "astronomical-dawn":
-		return astro.AstronomicalTwilight, astro.Rising, "astronomical", true
-	case "astronomical-dusk":
-		return astro.AstronomicalTwilight, astro.Setting, "astronomical", true
-	case "sun-altitude":
+	if k.Name == "sun-altitude" {
 		return k.Altitude, 0, fmt.Sprintf("altitude:%g", k.Altitude), true
 	}
-	return 0, 0, "", false
+	sk, ok := sunKinds[k.Name]
+	if !ok {
+		return 0, 0, "", false
+	}
+	if alt = sk.alt; alt == 0 {
+		alt = c.p.riseAlt()
+	}
+	return alt, sk.dir, sk.family, true
 }
 
 // threshold is the Sun's crossings of one altitude over the collector's

@@ -380,8 +380,9 @@ type orderScratch struct {
 // after day, so the merge takes each event from the run the event one
 // period before it came from, checking only that it does not come before
 // the event taken last; the runs' next events in a ring in order of start
-// (runRing) find the order where that pattern breaks. A run out of order (or more runs than the ring holds)
-// sends all the positions through stableOrder instead.
+// (runRing) find the order where that pattern breaks. A run out of order
+// (or more runs than the ring holds) sends all the positions through
+// stableOrder instead.
 func orderRuns(events []Event, runs []int32, s *orderScratch) (order, runOf []int32) {
 	n := len(events)
 	order = slices.Grow(s.order[:0], n)[:n]

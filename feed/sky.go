@@ -1112,24 +1112,21 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 	if err != nil {
 		return err
 	}
-	horizon := family == "sun-horizon"
-	var late []time.Time // flat horizon: the sunsets after midnight that end a day
-	if horizon {
-		if err := c.dayLengths(); err != nil {
-			return err
-		}
-		if alt != skylineKey {
-			if late, err = c.dayEnds(alt); err != nil {
-				return err
-			}
-		}
-	}
 	c.events = slices.Grow(c.events, len(th.xs))
-	starts := c.dayStarts()
 	byDate := c.dateCrossings(th)
 	dates := c.dayDates()
-	if !horizon {
-		return c.twilightEvents(k, th, dir, family, byDate, dates, starts)
+	if family != "sun-horizon" {
+		return c.twilightEvents(k, th, dir, family, byDate, dates, c.dayStarts())
+	}
+	// the horizon (sunrise, sunset): each event with its day length
+	if err := c.dayLengths(); err != nil {
+		return err
+	}
+	var late []time.Time // flat horizon: the sunsets after midnight that end a day
+	if alt != skylineKey {
+		if late, err = c.dayEnds(alt); err != nil {
+			return err
+		}
 	}
 	for i := range dates {
 		lo, hi := int(byDate[i]), int(byDate[i+1]) // the date's crossings: th.xs[lo:hi]
@@ -1139,7 +1136,7 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 		}
 		crossed := hi > lo
 		keep := -1 // with a skyline: only the date's first appearance, last disappearance
-		if horizon && alt == skylineKey {
+		if alt == skylineKey {
 			for j := lo; j < hi; j++ {
 				if th.xs[j].Direction == dir && (keep < 0 || dir == astro.Setting) {
 					keep = j
@@ -1160,20 +1157,18 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 			e := &c.events[len(c.events)-1]
 			*e = Event{}
 			e.Kind, e.Start, e.Direction, e.Date = k, x.Time, x.Direction, dates[i]
-			if horizon {
-				e.DayLength, e.DayChange = c.lengths[i+1], c.lengths[i+1]-c.lengths[i]
-				if late != nil && !up && x.Time.Equal(late[i+1]) {
-					// a sunset after midnight ends the day of the date before
-					before := c.lengthBefore
-					if i > 0 {
-						before = c.lengths[i-1]
-					}
-					e.DayLength, e.DayChange = c.lengths[i], c.lengths[i]-before
+			e.DayLength, e.DayChange = c.lengths[i+1], c.lengths[i+1]-c.lengths[i]
+			if late != nil && !up && x.Time.Equal(late[i+1]) {
+				// a sunset after midnight ends the day of the date before
+				before := c.lengthBefore
+				if i > 0 {
+					before = c.lengths[i-1]
 				}
-				e.DirectSun = alt == skylineKey
-				if e.Azimuth, err = c.sky.eph.SunAzimuth(c.p.Observer, x.Time); err != nil {
-					return err
-				}
+				e.DayLength, e.DayChange = c.lengths[i], c.lengths[i]-before
+			}
+			e.DirectSun = alt == skylineKey
+			if e.Azimuth, err = c.sky.eph.SunAzimuth(c.p.Observer, x.Time); err != nil {
+				return err
 			}
 		}
 		if !crossed {
@@ -1182,17 +1177,12 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 			if up {
 				n.State = astro.AlwaysAbove
 			}
-			if horizon && !up && (alt == skylineKey || c.p.Observer.Horizon > 0) {
+			if !up && (alt == skylineKey || c.p.Observer.Horizon > 0) {
 				tr, ok, err := c.noonOf(d)
 				if err != nil {
 					return err
 				}
 				n.Hidden = ok && c.upAtNoon(tr)
-			}
-			if up && twilight(family) {
-				if n.SunUp, err = c.sunStaysUp(starts[i+1], starts[i+2]); err != nil {
-					return err
-				}
 			}
 			c.notes = append(c.notes, n)
 		} else if !listed {

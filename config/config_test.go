@@ -504,6 +504,20 @@ func TestLoadErrors(t *testing.T) {
 			t.Errorf("%s: %v\nwant it to contain %q", name, err, want)
 		}
 	}
+	// A tab in YAML's indentation is named with its own line: the decoder
+	// says "line 2" of the tab on line 3 below, and of the one on line 2 only
+	// that a character cannot start a token.
+	for in, want := range map[string]string{
+		"sites:\n  - id: x\n\tlatitude: 1\n":     "yaml: line 3: a tab in the indentation (YAML indents with spaces only)",
+		"sites:\n  - id: x\n  \t  latitude: 1\n": "yaml: line 3: a tab in the indentation (YAML indents with spaces only)",
+		"sites:\n\t- id: x\n":                    "yaml: line 2: a tab in the indentation (YAML indents with spaces only)",
+		"sites:\n  - id: x\n  @latitude: 1\n":    "yaml: line 3: found character that cannot start any token",
+	} {
+		_, err = Parse(strings.NewReader(in), "yaml")
+		if !errors.Is(err, ErrUnreadable) || !strings.HasSuffix(err.Error(), want) {
+			t.Errorf("%q: %v\nwant it to end %q", in, err, want)
+		}
+	}
 	_, err = Parse(strings.NewReader("{}"), "xml")
 	if err == nil || !strings.Contains(err.Error(), `unsupported format "xml"`) {
 		t.Errorf("format: %v", err)

@@ -249,6 +249,45 @@ func syntaxMessage(err error, data []byte) string {
 		off := min(int(js.Offset), len(data))
 		row := bytes.Count(data[:off], []byte("\n")) + 1
 		msg = fmt.Sprintf("line %d: %s", row, msg)
+	default:
+		msg = yamlTabMessage(msg, data)
+	}
+	return msg
+}
+
+// yamlTabMessage names the line of a tab in YAML's indentation: the YAML
+// decoder's "found a tab character that violates indentation" gives the
+// line of the key before it, and "found character that cannot start any
+// token" does not say the character is a tab.
+func yamlTabMessage(msg string, data []byte) string {
+	rest, ok := strings.CutPrefix(msg, "yaml: line ")
+	if !ok {
+		return msg
+	}
+	num, what, ok := strings.Cut(rest, ": ")
+	line, err := strconv.Atoi(num)
+	if !ok || err != nil || line < 1 {
+		return msg
+	}
+	tabbed := func(l []byte) bool { // a tab before the line's first other character
+		i := bytes.IndexFunc(l, func(r rune) bool { return r != ' ' && r != '\t' })
+		if i < 0 {
+			i = len(l)
+		}
+		return bytes.IndexByte(l[:i], '\t') >= 0
+	}
+	lines := bytes.Split(data, []byte("\n"))
+	switch {
+	case strings.HasPrefix(what, "found a tab character"):
+		for n := line; n <= len(lines); n++ {
+			if tabbed(lines[n-1]) {
+				return fmt.Sprintf("yaml: line %d: a tab in the indentation (YAML indents with spaces only)", n)
+			}
+		}
+	case strings.HasPrefix(what, "found character that cannot start any token"):
+		if line <= len(lines) && tabbed(lines[line-1]) {
+			return fmt.Sprintf("yaml: line %d: a tab in the indentation (YAML indents with spaces only)", line)
+		}
 	}
 	return msg
 }

@@ -182,7 +182,7 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-plan-date.yaml", "feeds[0].plans[0].date", "every fortnight", "is not a weekday", "every friday", 0},
 		{"bad-plan-date-day.yaml", "feeds[0].plans[0].date", "every 02-30", `"02-30" is not a date of the year`, "every 02-29", 0},
 		{"plan-date-daily-kind.yaml", "feeds[0].plans[0].date", "saturday nearest sunset", "happens every day", "full-moon", 0},
-		{"bad-plan-start.yaml", "feeds[0].plans[0].start", "sunsett+30m", `unknown kind "sunsett"`, `did you mean "sunset"?`, 0},
+		{"bad-plan-start.yaml", "feeds[0].plans[0].start", "sunsett+30m", `unknown kind "sunsett"`, `did you mean "sunset+30m"?`, 0},
 		{"bad-plan-end.yaml", "feeds[0].plans[0].end", "24:30", "not a clock time", "HH:MM", 0},
 		{"plan-end-without-start.yaml", "feeds[0].plans[0].end", "23:00", "needs a start", "", 0},
 		{"plan-end-and-for.yaml", "feeds[0].plans[0].for", "3h", "either end or for", "", 0},

@@ -192,18 +192,9 @@ func ParseKind(s string) (Kind, error) {
 	param = strings.TrimSpace(param)
 	d, ok := kindIndex[base]
 	if !ok {
-		hint := ""
-		if near := closest(base, KindNames); near != "" {
-			sugg := near
-			if kindIndex[near].flags&flagParam != 0 {
-				sugg = exampleFor(near)
-				if hasParam && param != "" {
-					sugg = near + ":" + param
-				}
-			}
-			hint = fmt.Sprintf("did you mean %q?", sugg)
-		} else {
-			hint = "known kinds: " + strings.Join(KindNames, ", ")
+		hint := "known kinds: " + strings.Join(KindNames, ", ")
+		if near := nearKind(text, KindNames); near != "" {
+			hint = fmt.Sprintf("did you mean %q?", near)
 		}
 		return Kind{}, &KindError{Value: s, Msg: msgUnknownKind, Hint: hint}
 	}
@@ -257,6 +248,24 @@ func ParseKind(s string) (Kind, error) {
 		}
 		return Kind{Name: d.name, DayLength: dur}, nil
 	}
+}
+
+// nearKind returns the written kind that text (lower case, trimmed), an
+// unknown kind, most likely means: the name among names nearest to its base
+// name, with text's parameter or, when it has none, the kind's example
+// ("photoperod:12h": "photoperiod:12h", "photoperod": "photoperiod:12h30m");
+// "" when no name is near.
+func nearKind(text string, names []string) string {
+	base, param, hasParam := strings.Cut(text, ":")
+	param = strings.TrimSpace(param)
+	near := closest(strings.TrimSpace(base), names)
+	if near == "" || kindIndex[near].flags&flagParam == 0 {
+		return near
+	}
+	if hasParam && param != "" {
+		return near + ":" + param
+	}
+	return exampleFor(near)
 }
 
 func exampleFor(name string) string {

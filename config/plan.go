@@ -1,7 +1,6 @@
 package config
 
 import (
-	"errors"
 	"fmt"
 	"slices"
 	"strconv"
@@ -161,9 +160,22 @@ const dateRuleHint = `e.g. "every day", "every friday", "every 04-25", "2027-06-
 // ParseDateRule reads a plan's date rule: "every day", "every <weekday>",
 // "every MM-DD", one date "YYYY-MM-DD", an event kind whose events name
 // dates ("full-moon", "june-solstice", "photoperiod:12h"), or
-// "<weekday> nearest|before|after <event kind>".
+// "<weekday> nearest|before|after <event kind>". A misspelt word gets the
+// rule it likely means as the error's hint ("saturdy nearest new-mon": did
+// you mean "saturday nearest new-moon"?).
 func ParseDateRule(s string) (DateRule, error) {
 	f := strings.Fields(strings.ToLower(s))
+	r, err := parseDateRule(f)
+	if err != nil {
+		if near := nearRule(f); near != "" {
+			err.Hint = fmt.Sprintf("did you mean %q?", near)
+		}
+		return DateRule{}, err
+	}
+	return r, nil
+}
+
+func parseDateRule(f []string) (DateRule, *RuleError) {
 	switch {
 	case len(f) == 0:
 		return DateRule{}, &RuleError{Msg: "is empty", Hint: dateRuleHint}
@@ -192,7 +204,7 @@ func ParseDateRule(s string) (DateRule, error) {
 			return DateRule{}, &RuleError{Msg: "not a date", Hint: "write YYYY-MM-DD, e.g. 2027-06-12"}
 		}
 		return DateRule{Type: RuleOnce, Date: d}, nil
-	case len(f) == 1 && (f[0] == "every" || f[0] == "day" || f[0] == "daily" || isWeekday(f[0])):
+	case len(f) == 1 && isDayWord(f[0]):
 		// "friday" alone is a weekly rule without its "every", not a kind
 		hint := `write "every day"`
 		if d, ok := ParseWeekday(f[0]); ok {
@@ -212,7 +224,7 @@ func ParseDateRule(s string) (DateRule, error) {
 		if !ok {
 			return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is not a weekday", f[0]), Hint: `e.g. "saturday nearest new-moon"`}
 		}
-		if f[1] != RelNearest && f[1] != RelBefore && f[1] != RelAfter {
+		if !isRelation(f[1]) {
 			return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q: write nearest, before or after", f[1]), Hint: `e.g. "saturday nearest new-moon"`}
 		}
 		k, err := anchorKind(f[2])
@@ -226,18 +238,154 @@ func ParseDateRule(s string) (DateRule, error) {
 
 func isWeekday(s string) bool { _, ok := ParseWeekday(s); return ok }
 
+// isDayWord reports whether a one-word rule is a weekly or daily rule short
+// of a word: a weekday, "day", "daily" or "every".
+func isDayWord(s string) bool { return s == "every" || s == "day" || s == "daily" || isWeekday(s) }
+
+var relations = []string{RelNearest, RelBefore, RelAfter}
+
+func isRelation(s string) bool { return slices.Contains(relations, s) }
+
 // anchorKind parses the event kind a date rule is anchored to: a kind with a
 // few events a year or a month, or photoperiod.
-func anchorKind(s string) (Kind, error) {
+func anchorKind(s string) (Kind, *RuleError) {
 	k, err := ParseKind(s)
 	if err != nil {
-		return Kind{}, &RuleError{Msg: err.Error()}
+		ke, ok := err.(*KindError)
+		if !ok {
+			return Kind{}, &RuleError{Msg: err.Error()}
+		}
+		if ke.Msg == msgUnknownKind {
+			// the kinds that pick dates are a few of all: the hint is the
+			// rule nearRule finds, or the forms of a rule
+			return Kind{}, &RuleError{Msg: fmt.Sprintf("unknown kind %q", ke.Value), Hint: dateRuleHint}
+		}
+		return Kind{}, &RuleError{Msg: fmt.Sprintf("kind %q: %s", ke.Value, ke.Msg), Hint: ke.Hint}
 	}
-	if !k.IsYearly() && k.Name != KindPhotoperiod {
+	if !isAnchor(k) {
 		return Kind{}, &RuleError{Msg: fmt.Sprintf("%q happens every day: it does not pick dates", k.String()),
 			Hint: "use a kind with a few dates a year or a month (full-moon, june-solstice, photoperiod:12h…), or \"every day\""}
 	}
 	return k, nil
+}
+
+func isAnchor(k Kind) bool { return k.IsYearly() || k.Name == KindPhotoperiod }
+
+// The kinds a date rule can be anchored to, and those a plan can start or
+// end at: the names a misspelt one is compared with.
+var (
+	anchorNames  = kindNamesWhere(isAnchor)
+	instantNames = kindNamesWhere(Kind.IsInstant)
+)
+
+func kindNamesWhere(keep func(Kind) bool) []string {
+	var names []string
+	for _, n := range KindNames {
+		if keep(Kind{Name: n}) {
+			names = append(names, n)
+		}
+	}
+	return names
+}
+
+// nearRule returns the date rule that the words f of a rule that does not
+// parse most likely mean: each misspelt word replaced by the word of its
+// place it is nearest to ("saturdy nearest new-mon": "saturday nearest
+// new-moon", "evry friday": "every friday", "fridy": "every friday"), and a
+// kind written as two words joined ("full moon": "full-moon"). It returns ""
+// when a word is near none, when no word was changed, or when the result
+// does not parse either.
+func nearRule(f []string) string {
+	words := nearWords(f)
+	if len(words) == 0 || slices.Contains(words, "") || slices.Equal(words, f) {
+		return ""
+	}
+	if _, err := parseDateRule(words); err != nil {
+		return ""
+	}
+	return strings.Join(words, " ")
+}
+
+// nearWords returns the words of a rule with each one that is not a word of
+// its place replaced by the nearest that is, or "" when none is near.
+func nearWords(f []string) []string {
+	fix := func(w string, ok func(string) bool, near func(string) string) string {
+		if ok(w) {
+			return w
+		}
+		return near(w)
+	}
+	anchor := func(w string) string {
+		return fix(w, func(w string) bool { _, err := ParseKind(w); return err == nil },
+			func(w string) string { return nearKind(w, anchorNames) })
+	}
+	switch len(f) {
+	case 1:
+		if isDayWord(f[0]) {
+			return nil // its own hint says what to write
+		}
+		if k := anchor(f[0]); k != "" {
+			return []string{k}
+		}
+		if d := nearDay(f[0]); d != "" {
+			return []string{"every", d}
+		}
+	case 2:
+		if closest(f[0], []string{"every"}) == "" {
+			return []string{anchor(f[0] + "-" + f[1])} // "full moon"
+		}
+		day := fix(f[1], func(w string) bool { _, err := parseDateRule([]string{"every", w}); return err == nil }, nearDay)
+		return []string{"every", day}
+	case 3:
+		return []string{fix(f[0], isWeekday, nearWeekday), fix(f[1], isRelation, nearRelation), anchor(f[2])}
+	case 4:
+		return nearWords([]string{f[0], f[1], f[2] + "-" + f[3]}) // "saturday nearest full moon"
+	}
+	return nil
+}
+
+// nearWeekday is the weekday a misspelt name most likely means: the short or
+// full name within a few edits ("satday": "saturday", "fridy": "friday"),
+// or the full name it begins ("satur"); "" when none is near. Unlike the
+// weekdays lists (nearName), a word is not taken for the weekday whose short
+// name it begins with: in a date rule "sunset" is not "sunday".
+func nearWeekday(w string) string {
+	if near := closest(w, weekdayNames); near != "" {
+		return near
+	}
+	if near := closest(w, weekdayFull); near != "" {
+		return near
+	}
+	for _, n := range weekdayFull {
+		if len(w) >= 3 && strings.HasPrefix(n, w) {
+			return n
+		}
+	}
+	return ""
+}
+
+// nearDay is what a misspelt word after "every" most likely means: "day"
+// ("dayly"; "dya" is too far) or a weekday, or "".
+func nearDay(w string) string {
+	if closest(w, []string{"day", "daily"}) != "" {
+		return "day"
+	}
+	return nearWeekday(w)
+}
+
+// nearRelation is the relation a misspelt one most likely means: the one
+// within a few edits ("neerest", "befor") or the one it begins ("near",
+// "aft"), or "".
+func nearRelation(w string) string {
+	if near := closest(w, relations); near != "" {
+		return near
+	}
+	for _, r := range relations {
+		if len(w) >= 3 && strings.HasPrefix(r, w) {
+			return r
+		}
+	}
+	return ""
 }
 
 // TimeSpec is a parsed plan time (Plan.Start, Plan.End): a local clock time
@@ -255,7 +403,16 @@ const timeSpecHint = `an event with an optional offset, e.g. "sunset", "sunset+3
 // optional offset within ±12h: "sunset", "sunset+30m",
 // "astronomical-dawn-1h".
 func ParseTimeSpec(s string) (TimeSpec, error) {
-	t := strings.ToLower(strings.TrimSpace(s))
+	ts, err := parseTimeSpec(strings.ToLower(strings.TrimSpace(s)), true)
+	if err != nil {
+		return TimeSpec{}, err
+	}
+	return ts, nil
+}
+
+// parseTimeSpec reads a plan time t (lower case, trimmed); with suggest, an
+// unknown kind gets the plan time it likely means as the error's hint.
+func parseTimeSpec(t string, suggest bool) (TimeSpec, *RuleError) {
 	if t == "" {
 		return TimeSpec{}, &RuleError{Msg: "is empty", Hint: timeSpecHint}
 	}
@@ -288,11 +445,13 @@ func ParseTimeSpec(s string) (TimeSpec, error) {
 	}
 	k, err := ParseKind(name)
 	if err != nil {
-		var ke *KindError
-		if errors.As(err, &ke) && strings.HasPrefix(ke.Hint, "did you mean") {
-			return TimeSpec{}, &RuleError{Msg: fmt.Sprintf("unknown kind %q", ke.Value), Hint: ke.Hint}
+		hint := timeSpecHint
+		if suggest {
+			if near := nearTimeSpec(t, name); near != "" {
+				hint = fmt.Sprintf("did you mean %q?", near)
+			}
 		}
-		return TimeSpec{}, &RuleError{Msg: fmt.Sprintf("unknown kind %q", name), Hint: timeSpecHint}
+		return TimeSpec{}, &RuleError{Msg: fmt.Sprintf("unknown kind %q", name), Hint: hint}
 	}
 	if !k.IsInstant() {
 		return TimeSpec{}, &RuleError{Msg: fmt.Sprintf("%q does not give one time a day", k.String()),
@@ -302,6 +461,40 @@ func ParseTimeSpec(s string) (TimeSpec, error) {
 		return TimeSpec{}, &RuleError{Msg: "offset must be within -12h..12h", Hint: `e.g. "sunset+30m"`}
 	}
 	return TimeSpec{Event: k, Offset: offset}, nil
+}
+
+// nearTimeSpec returns the plan time that t, whose kind name is unknown,
+// most likely means: the instant kind nearest to name with t's offset as
+// written ("sunsett+30m": "sunset+30m"), or t without spaces ("sunset +
+// 30m"); "" when neither is a plan time.
+func nearTimeSpec(t, name string) string {
+	near := []string{strings.Join(strings.Fields(t), "")}
+	if !hasKindPrefix(name) {
+		// "sunset-15" is a sunset with an offset short of its unit, not
+		// a misspelt kind
+		near = append(near, nearKind(name, instantNames)+t[len(name):])
+	}
+	for _, near := range near {
+		if near != t {
+			if _, err := parseTimeSpec(near, false); err == nil {
+				return near
+			}
+		}
+	}
+	return ""
+}
+
+// hasKindPrefix reports whether name begins with a kind followed by "+" or
+// "-".
+func hasKindPrefix(name string) bool {
+	for i := 1; i < len(name); i++ {
+		if name[i] == '+' || name[i] == '-' {
+			if _, err := ParseKind(name[:i]); err == nil {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 // IsInstant reports whether a kind gives at most one instant per event a

@@ -2,6 +2,7 @@ package config
 
 import (
 	"errors"
+	"slices"
 	"strings"
 	"testing"
 	"time"
@@ -87,5 +88,82 @@ func TestDateRuleMissingEvery(t *testing.T) {
 		if !errors.As(err, &re) || re.Msg != "not a date rule" || re.Hint != hint {
 			t.Errorf("%q: %v, want not a date rule (%s)", in, err, hint)
 		}
+	}
+}
+
+// A misspelt word of a plan's date rule, start or end gets the whole value
+// it likely means as a did-you-mean, as a misspelt kind of a kinds entry
+// does; a word near nothing keeps the forms of a rule as its hint.
+func TestPlanDidYouMean(t *testing.T) {
+	for _, tc := range []struct{ in, hint string }{
+		{"saturdy nearest new-moon", `did you mean "saturday nearest new-moon"?`},
+		{"evry friday", `did you mean "every friday"?`},
+		{"sundy after full-moon", `did you mean "sunday after full-moon"?`},
+		{"every fridy", `did you mean "every friday"?`},
+		{"evry day", `did you mean "every day"?`},
+		{"saturday neerest new-moon", `did you mean "saturday nearest new-moon"?`},
+		{"saturday near new-moon", `did you mean "saturday nearest new-moon"?`},
+		{"sat befor ful-moon", `did you mean "sat before full-moon"?`},
+		{"saturday nearest new-mon", `did you mean "saturday nearest new-moon"?`},
+		{"saturday nearest full moon", `did you mean "saturday nearest full-moon"?`},
+		{"ful-moon", `did you mean "full-moon"?`},
+		{"full moon", `did you mean "full-moon"?`},
+		{"photoperod:12h", `did you mean "photoperiod:12h"?`},
+		{"fridy", `did you mean "every friday"?`},
+		{"dayly", `did you mean "every day"?`},
+		// near nothing, or near only what a rule cannot take: no guess
+		{"every fortnight", `e.g. "every friday" or "every 04-25"`},
+		{"every sunset", `e.g. "every friday" or "every 04-25"`},
+		{"sunsett", dateRuleHint},
+		{"friday nearest sunsett", dateRuleHint},
+		{"saturday nearest", dateRuleHint},
+		{"sat nearest photoperiod:25h", `e.g. "photoperiod:12h"`},
+	} {
+		_, err := ParseDateRule(tc.in)
+		var re *RuleError
+		if !errors.As(err, &re) || re.Hint != tc.hint {
+			t.Errorf("date %q: %v, want the hint %s", tc.in, err, tc.hint)
+		}
+	}
+	for _, tc := range []struct{ in, hint string }{
+		{"sunsett+30m", `did you mean "sunset+30m"?`},
+		{"civl-dusk-15m", `did you mean "civil-dusk-15m"?`},
+		{"sunrse", `did you mean "sunrise"?`},
+		{"Sunset + 30m", `did you mean "sunset+30m"?`},
+		// golden-hour is near but no plan time; a unit missing is no misspelling
+		{"golden-houre", timeSpecHint},
+		{"astronomical-dusk-15", timeSpecHint},
+	} {
+		_, err := ParseTimeSpec(tc.in)
+		var re *RuleError
+		if !errors.As(err, &re) || re.Hint != tc.hint {
+			t.Errorf("time %q: %v, want the hint %s", tc.in, err, tc.hint)
+		}
+	}
+}
+
+// The did-you-mean reaches `heliocal check` as the rest of the
+// configuration's do: the field, the value as written, the hint.
+func TestPlanDidYouMeanFields(t *testing.T) {
+	_, err := Parse(strings.NewReader(`
+sites: [{id: s, latitude: 47, longitude: 8, timezone: Europe/Zurich}]
+feeds:
+- id: f
+  site: s
+  plans:
+  - {title: a, date: "Saturdy nearest new-moon", start: "sunsett+30m", end: "sunrse"}
+  - {title: b, date: "evry friday", months: [juli, febuary]}
+`), "yaml")
+	ps := problemsOf(t, err)
+	want := []FieldError{
+		{"feeds[0].plans[0].date", "Saturdy nearest new-moon", `"saturdy" is not a weekday`, `did you mean "saturday nearest new-moon"?`},
+		{"feeds[0].plans[0].start", "sunsett+30m", `unknown kind "sunsett"`, `did you mean "sunset+30m"?`},
+		{"feeds[0].plans[0].end", "sunrse", `unknown kind "sunrse"`, `did you mean "sunrise"?`},
+		{"feeds[0].plans[1].date", "evry friday", "not a date rule", `did you mean "every friday"?`},
+		{"feeds[0].plans[1].months[0]", "juli", "not a month", `did you mean "jul"?`},
+		{"feeds[0].plans[1].months[1]", "febuary", "not a month", `did you mean "february"?`},
+	}
+	if !slices.Equal(ps, want) {
+		t.Errorf("problems:\n%v\nwant:\n%v", ps, want)
 	}
 }

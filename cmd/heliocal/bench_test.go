@@ -165,6 +165,39 @@ func BenchmarkAdhocRequest(b *testing.B) {
 	b.ReportMetric(float64(size), "gzip-bytes/op")
 }
 
+// BenchmarkPreviewLampsNote: the builder's preview (/at.json) of a week
+// that needs no lamps, whose note looks beyond the week for the date the
+// lamps are needed again, as the subscribed feed does: within the first
+// eight weeks (vienna) or only in the whole subscription (tromso).
+func BenchmarkPreviewLampsNote(b *testing.B) {
+	set := func() adhocSettings { return adhocSettings{layout: newLayout(""), refresh: 24 * time.Hour} }
+	srv, err := serve.New(serve.Options{
+		Logger:            slog.New(slog.DiscardHandler),
+		Build:             func(context.Context) (*publish.Bundle, error) { return &publish.Bundle{}, nil },
+		Adhoc:             adhocFeedFrom(set),
+		Preview:           adhocCalendarFrom(set),
+		AdhocDefaultKinds: []string{"sunrise", "sunset"},
+	})
+	if err != nil {
+		b.Fatal(err)
+	}
+	h := srv.Handler()
+	for _, c := range []struct{ name, query string }{
+		{"vienna", "lat=48.2&lon=16.4&tz=Europe/Vienna&kinds=lighting:16h,sunrise,sunset&start=2027-06-20"},
+		{"tromso", "lat=69.65&lon=18.96&tz=Europe/Oslo&kinds=lighting:16h,sunrise,sunset&start=2027-05-20"},
+	} {
+		b.Run(c.name, func(b *testing.B) {
+			for b.Loop() {
+				w := &discardResponse{h: http.Header{}}
+				h.ServeHTTP(w, httptest.NewRequest("GET", "/at.json?"+c.query, nil))
+				if w.code != http.StatusOK {
+					b.Fatalf("status %d", w.code)
+				}
+			}
+		})
+	}
+}
+
 // discardResponse is a ResponseWriter that keeps the status and headers
 // and counts the body's bytes.
 type discardResponse struct {

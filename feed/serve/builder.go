@@ -20,6 +20,7 @@ import (
 
 	"rsc.io/qr"
 
+	"heliocal/config"
 	"heliocal/feed"
 	"heliocal/feed/publish"
 )
@@ -287,6 +288,9 @@ func (s *Server) servePreview(w http.ResponseWriter, r *http.Request) {
 			return
 		}
 	}
+	if err := s.lampNotesAsFed(r.Context(), q, subDays, cal); s.computeFailed(w, q, err) {
+		return
+	}
 	https, page := s.links(r, q, start, subDays)
 	res := previewResult{SubscribeDays: subDays, Zone: q.Location.String(), ZoneFound: q.ZoneFound, Name: cal.Site.Name, Title: cal.Title,
 		HTTPS: https, Webcal: webcal(https), Page: page, QR: qrDataURL(page), Days: days(cal, q)}
@@ -303,6 +307,60 @@ func (s *Server) servePreview(w http.ResponseWriter, r *http.Request) {
 		w.Write(body)
 	}
 }
+
+// lampNotesAsFed gives the "no lamps needed" notes of the preview cal whose
+// stretch of dates outlasts the preview ("No lamps needed through 14 Jun")
+// the title the subscribed feed gives them on the same dates: the feed,
+// feedDays long from the preview's first date, looks further and says until
+// when ("No lamps needed until 2 Jul", the first date that needs lamps
+// again), or through its own last date. It computes the feed's lighting
+// kinds alone, and only when the preview has such a note: first over
+// lampLookAhead days, which give the feed's title when lamps are needed
+// again within them ("until" names that date whatever the window), then,
+// for a stretch that outlasts them, over the whole feed.
+func (s *Server) lampNotesAsFed(ctx context.Context, q AdhocQuery, feedDays int, cal *feed.Calendar) error {
+	open := func(e *feed.Entry) bool {
+		return e.Facts.Note && !e.Facts.Short && e.Facts.Until.IsZero() && strings.HasPrefix(e.Kind, config.KindLighting+":")
+	}
+	for _, days := range []int{min(lampLookAhead, feedDays), feedDays} {
+		var kinds []string
+		for i := range cal.Entries {
+			if e := &cal.Entries[i]; open(e) && !slices.Contains(kinds, e.Kind) {
+				kinds = append(kinds, e.Kind)
+			}
+		}
+		if len(kinds) == 0 || days <= q.Days {
+			continue
+		}
+		q.Kinds, q.Days = kinds, days
+		long, err := s.compute(ctx, q)
+		if err != nil {
+			return err
+		}
+		for i := range cal.Entries {
+			e := &cal.Entries[i]
+			if !open(e) {
+				continue
+			}
+			for j := range long.Entries {
+				if f := &long.Entries[j]; f.Facts.Note && !f.Facts.Short && f.Kind == e.Kind && f.Date.Equal(e.Date) {
+					if !f.Facts.Until.IsZero() || days == feedDays {
+						e.Title, e.Description = strings.Clone(f.Title), strings.Clone(f.Description)
+						e.Facts.Until = f.Facts.Until
+					}
+					break
+				}
+			}
+		}
+		long.Release()
+	}
+	return nil
+}
+
+// lampLookAhead is how many days from the preview's first date are
+// computed first for its "no lamps needed" notes: most stretches end
+// within them.
+const lampLookAhead = 56
 
 // previewCalendar reads a preview or table query of at most maxDays days and
 // computes its calendar; start is the query's own start date ("" when it

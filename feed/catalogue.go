@@ -634,6 +634,10 @@ func summaries(col *collector, w *entryWriter, spec config.KindSpec) error {
 			return err
 		}
 	}
+	lateDusks, err := sub.dayEnds(astro.CivilTwilight) // the civil dusks after midnight that end a date's twilight
+	if err != nil {
+		return err
+	}
 	for i, d := 0, col.first; !d.After(col.last); i, d = i+1, d.AddDate(0, 0, 1) {
 		evs, ns := byDate[d], notes[d]
 		byStart(evs)
@@ -648,7 +652,8 @@ func summaries(col *collector, w *entryWriter, spec config.KindSpec) error {
 			})
 		}
 		carried := !sub.lateEnd(late, d.AddDate(0, 0, -1)).IsZero() // the date's first sunset ends the day before
-		w.summary(spec, d, sub.lengths[i+1], sub.lengths[i+1]-sub.lengths[i], evs, ns, carried)
+		dusk := sub.lateEnd(lateDusks, d.AddDate(0, 0, -1))         // the civil dusk that ends the day before's twilight
+		w.summary(spec, d, sub.lengths[i+1], sub.lengths[i+1]-sub.lengths[i], evs, ns, carried, dusk)
 	}
 	return nil
 }
@@ -1077,7 +1082,7 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 	f := &en.Facts
 	f.Part, f.Direction, f.Altitude, f.Azimuth, f.Distance = e.Part, e.Direction, e.Altitude, e.Azimuth, e.Distance
 	f.Illuminated, f.DayLength, f.DirectSun, f.Lamp, f.Short = e.Illuminated, e.DayLength, e.DirectSun, e.Lamp, e.Short
-	f.Open = e.Open
+	f.Open, f.LongDay = e.Open, e.LongDay
 	if e.Solar != nil || e.Lunar != nil {
 		f.Eclipse = e.EclipseFacts()
 	}
@@ -1150,8 +1155,8 @@ func (w *entryWriter) note(n Note) {
 	})
 }
 
-func (w *entryWriter) summary(spec config.KindSpec, d time.Time, length, change time.Duration, evs []Event, notes []Note, carried bool) {
-	title, desc := describeSummary(w.site, d, length, change, evs, notes, carried)
+func (w *entryWriter) summary(spec config.KindSpec, d time.Time, length, change time.Duration, evs []Event, notes []Note, carried bool, dusk time.Time) {
+	title, desc := describeSummary(w.site, d, length, change, evs, notes, carried, dusk)
 	if spec.Label != "" {
 		title = spec.Label
 	}

@@ -401,3 +401,102 @@ func TestDayLengthEndOfMidnightSun(t *testing.T) {
 		})
 	}
 }
+
+// The sunset that ends the midnight Sun on a date with a sunrise of its own
+// ends a day of more than 24 h, which no date's day length counts
+// (TestDayLengthEndOfMidnightSun): at 78.92° N, 11.93° E it comes at
+// 00:59:39 CEST on 27 August 2027 (PyEphem, tools/pyephem-checks/values.py,
+// midnight_sun_tails: 2027-08-26 22:59:39.023 UT), and its entry says it
+// ends the midnight sun, as the daily summary says it of the sunrise that
+// begins it, instead of the day length of the date's own day (22 h 44 min,
+// from 01:31 to 00:14 the next date); the date's summary marks it.
+func TestSunsetEndingMidnightSun(t *testing.T) {
+	s := site(t, "isfjell", 78.92, 11.93, "Arctic/Longyearbyen")
+	sk := sky(t, "2027-08-26", "2027-08-28")
+	kinds := mustKinds(t, "sunset", "daily-summary")
+	lastSet := time.Date(2027, 8, 26, 22, 59, 39, 23e6, time.UTC) // PyEphem, see above
+	events, _, err := sk.Events(context.Background(), PlaceOf(s), kinds, date("2027-08-26"), date("2027-08-28"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var sets []Event
+	for _, e := range events {
+		if e.Kind.Name == "sunset" {
+			sets = append(sets, e)
+		}
+	}
+	if len(sets) != 3 || !within(sets[0].Start.Sub(lastSet), 0) {
+		t.Fatalf("sunsets %v: want three, the first at PyEphem's %s", sets, lastSet.Format(time.RFC3339Nano))
+	}
+	if e := sets[0]; !e.LongDay || e.DayLength != 0 || e.DayChange != 0 {
+		t.Errorf("the sunset ending the midnight Sun: long day %v, day length %v, change %v; want no day length", e.LongDay, e.DayLength, e.DayChange)
+	}
+	for _, e := range sets[1:] {
+		if e.LongDay || e.DayLength == 0 {
+			t.Errorf("sunset %s: long day %v, day length %v; want a day of its own", e.Start.Format(time.RFC3339), e.LongDay, e.DayLength)
+		}
+	}
+	var specs []config.KindSpec
+	for _, k := range kinds {
+		specs = append(specs, config.KindSpec{Kind: k})
+	}
+	es, err := sk.Entries(context.Background(), s, "isfjell", specs, date("2027-08-27"), date("2027-08-27"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var set, summary string
+	for _, e := range es {
+		switch {
+		case e.AllDay:
+			summary = e.Description
+		case set == "":
+			set = e.Description
+		}
+	}
+	want := "Sunset at 00:59:39 CEST, azimuth 356° (north).\nIt ends the midnight sun: the Sun had stayed up for more than a day."
+	if !strings.HasPrefix(set, want) || strings.Contains(set, "Day length") {
+		t.Errorf("sunset at 00:59:39 CEST:\n%s\nwant it to begin:\n%s", set, want)
+	}
+	if !strings.Contains(summary, "Sunset 01:00 CEST (ending the midnight sun: the Sun had stayed up for more than a day)\n") {
+		t.Errorf("summary of 27 August does not mark its sunset at 01:00 as ending the midnight sun:\n%s", summary)
+	}
+}
+
+// A civil dusk after midnight that ends the twilight of the day before is
+// marked in the daily summary as a sunset after midnight is: at 59.9° N,
+// 10.75° E (Europe/Oslo, CEST = UT + 2 h, tz database) the civil dusks of
+// 6 June and 8 July 2027 pass midnight (PyEphem 3.7, Sun's centre at −6°,
+// pressure 0, sea level: 2027-06-06 22:01:07 UT, 2027-07-08 22:00:20 UT,
+// then 2027-07-09 21:57:38 UT, the evening's own).
+func TestSummaryMarksCivilDuskAfterMidnight(t *testing.T) {
+	s := site(t, "oslo", 59.9, 10.75, "Europe/Oslo")
+	sk := sky(t, "2027-06-06", "2027-07-09")
+	es, err := sk.Entries(context.Background(), s, "oslo", []config.KindSpec{{Kind: mustKinds(t, "daily-summary")[0]}}, date("2027-06-06"), date("2027-07-09"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	byDate := map[string]string{}
+	for _, e := range es {
+		byDate[e.Date.Format(time.DateOnly)] = e.Description
+	}
+	for _, c := range []struct {
+		date       string
+		dusk       time.Time // PyEphem, UT
+		has, lacks string
+	}{
+		{"2027-06-07", time.Date(2027, 6, 6, 22, 1, 7, 0, time.UTC), "Civil dusk 00:01 CEST (ending the day before)\n", ""},
+		{"2027-07-09", time.Date(2027, 7, 8, 22, 0, 20, 0, time.UTC), "Civil dusk 00:00 CEST (ending the day before)\n", ""},
+		{"2027-07-09", time.Date(2027, 7, 9, 21, 57, 38, 0, time.UTC), "Civil dusk 23:58 CEST\n", "Civil dusk 23:58 CEST ("},
+	} {
+		if !strings.HasPrefix(c.has, "Civil dusk "+cestMinute(c.dusk)+" CEST") {
+			t.Fatalf("PyEphem's dusk %s: the recorded value changed", cestMinute(c.dusk))
+		}
+		d := byDate[c.date]
+		if !strings.Contains(d, c.has) || c.lacks != "" && strings.Contains(d, c.lacks) {
+			t.Errorf("summary of %s lacks %q:\n%s", c.date, c.has, d)
+		}
+	}
+	if d := byDate["2027-06-06"]; strings.Contains(d, "ending the day before") {
+		t.Errorf("summary of 6 June (its dusk passed to 7 June) is marked:\n%s", d)
+	}
+}

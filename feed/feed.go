@@ -60,6 +60,7 @@ type Facts struct {
 	Illuminated float64         // the Moon's illuminated fraction
 	DayLength   time.Duration   // the natural day on the date
 	DirectSun   bool            // DayLength is the hours of direct Sun over the site's skyline
+	LongDay     bool            // a sunset that ends the midnight Sun: no day length (DayLength 0)
 	DayChange   time.Duration   // daily summary: change from the day before
 	Lamp        time.Duration   // lighting: the lamp period's length
 	Short       bool            // lighting: clipped, the target is not reached

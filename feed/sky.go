@@ -38,6 +38,7 @@ type Event struct {
 	Azimuth      float64       // sunrise/sunset/moonrise/moonset: direction, degrees from north through east
 	Low, High    float64       // golden-hour, blue-hour, sun-band: the altitude bounds, degrees
 	DirectSun    bool          // DayLength is the direct Sun over a skyline (sunrise, sunset, daily summary, photoperiod, lighting)
+	LongDay      bool          // sunset: it ends a period of more than a day above the horizon (midnight sun); DayLength and DayChange are zero
 	Open         bool          // a band's span not left again before the window ends (near a pole): End is the end of the window
 	Illuminated  float64       // Moon events: illuminated fraction 0..1
 	Waxing       bool          // Moon events: the Moon is waxing
@@ -1166,6 +1167,12 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 				}
 				e.DayLength, e.DayChange = c.lengths[i], c.lengths[i]-before
 			}
+			if late != nil && endsLongDay(th, j, hi) {
+				// the end of the midnight Sun, which no date's day
+				// length counts (dropLongTails): no length of another
+				// date's day
+				e.DayLength, e.DayChange, e.LongDay = 0, 0, true
+			}
 			e.DirectSun = alt == skylineKey
 			if e.Azimuth, err = c.sky.eph.SunAzimuth(c.p.Observer, x.Time); err != nil {
 				return err
@@ -1572,6 +1579,22 @@ func (c *collector) dropLongTails(l []time.Duration, alt float64) error {
 		l[i] -= time.Duration(s - starts[i-1].UnixNano())
 	}
 	return nil
+}
+
+// endsLongDay says whether th.xs[j] is a sunset that ends a period above
+// the threshold of more than a day (midnight sun) on a date with a sunrise
+// of its own after it (th.xs[j+1], before hi, the end of the date's
+// crossings): the part of that period on the date counts on no date
+// (dropLongTails), so the sunset has no day length of its own.
+func endsLongDay(th *threshold, j, hi int) bool {
+	xs := th.xs
+	if xs[j].Direction != astro.Setting || j+1 >= hi || xs[j+1].Direction != astro.Rising {
+		return false
+	}
+	if j == 0 {
+		return th.upFirst
+	}
+	return xs[j-1].Direction == astro.Rising && xs[j].Time.UnixNano()-xs[j-1].Time.UnixNano() >= int64(24*time.Hour)
 }
 
 // dayEnds is the one record of which sunset ends a day after midnight, for

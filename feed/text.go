@@ -820,6 +820,11 @@ func appendDescription(b []byte, s *siteInfo, e *Event) ([]byte, string) {
 	return append(b, desc...), title
 }
 
+// longDayEnd is what a sunset that ends the midnight Sun says in place of
+// a day length (Event.LongDay), in the words of the daily summary's
+// "the Sun then stays up for more than a day: midnight sun".
+const longDayEnd = "It ends the midnight sun: the Sun had stayed up for more than a day."
+
 // appendDaily appends the description of a sunrise, a sunset or a dawn or
 // dusk of the three twilights to b, with its title; ok is false, and b
 // unchanged, for the other kinds.
@@ -835,6 +840,9 @@ func appendDaily(b []byte, s *siteInfo, e *Event) (_ []byte, title string, ok bo
 		}
 		b = append(s.zone.appendClock(append(b, " at "...), e.Start), ", azimuth "...)
 		b = append(appendAzimuthWords(b, e), ").\n"...)
+		if e.LongDay {
+			return append(b, longDayEnd...), title, true
+		}
 		if e.DirectSun {
 			b = append(b, "Direct Sun over the skyline "...)
 		} else {
@@ -1279,8 +1287,10 @@ func noEventToday(k config.Kind) (string, string) {
 // describeSummary gives the daily summary of date d: sunrise, sunset, day
 // length and civil twilight, with the polar states spelled out. A sunset
 // after midnight that ends d's day is in evs with its own date; carried
-// says that d's first sunset ends the day before.
-func describeSummary(s *siteInfo, d time.Time, length, delta time.Duration, evs []Event, notes []Note, carried bool) (string, string) {
+// says that d's first sunset ends the day before, and dusk is the civil
+// dusk after midnight that ends the twilight of the day before (zero when
+// none), marked as that sunset is.
+func describeSummary(s *siteInfo, d time.Time, length, delta time.Duration, evs []Event, notes []Note, carried bool, dusk time.Time) (string, string) {
 	loc := s.TimeZone.Location
 	var b strings.Builder
 	title := fmt.Sprintf("Daylight %s", hm(length))
@@ -1336,10 +1346,14 @@ func describeSummary(s *siteInfo, d time.Time, length, delta time.Duration, evs 
 			switch {
 			case e.Date.After(d):
 				fmt.Fprintf(&b, " (after midnight, %s)", e.Date.Format("Mon 2 January"))
+			case e.LongDay:
+				b.WriteString(" (ending the midnight sun: the Sun had stayed up for more than a day)")
 			case carried && first:
 				b.WriteString(" (ending the day before)")
 			}
 			first = false
+		case e.Kind.Name == "civil-dusk" && e.Start.Equal(dusk):
+			b.WriteString(" (ending the day before)")
 		case i == upFrom:
 			b.WriteString(" (the Sun then stays up for more than a day: midnight sun)")
 		}

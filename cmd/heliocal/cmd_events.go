@@ -445,7 +445,7 @@ func toJSONEvent(e feed.Event) jsonEvent {
 			j.Uncertainty = &s
 		}
 	}
-	if carriesDayLength(e.Kind.Name) {
+	if carriesDayLength(e.Kind.Name) && !e.LongDay { // the end of the midnight Sun: no day length
 		s := math.Round(e.DayLength.Seconds()*1000) / 1000
 		if e.DirectSun {
 			j.DirectSun = &s // time above the skyline, not sunrise to sunset
@@ -559,7 +559,13 @@ func detailsAt(e *feed.Event, loc *time.Location, o astro.Observer) string {
 		length = "direct Sun "
 	}
 	switch e.Kind.Name {
-	case "sunrise", "sunset", "photoperiod", config.KindLighting:
+	case "sunset":
+		if e.LongDay {
+			parts = append(parts, "ends the midnight sun (up for more than a day)")
+		} else {
+			parts = append(parts, length+feed.Length(e.DayLength, time.Second))
+		}
+	case "sunrise", "photoperiod", config.KindLighting:
 		parts = append(parts, length+feed.Length(e.DayLength, time.Second))
 	case "daily-summary":
 		parts = append(parts, length+feed.Length(e.DayLength, time.Second)+", change "+feed.Change(e.DayChange))

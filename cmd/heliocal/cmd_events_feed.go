@@ -209,7 +209,7 @@ func toJSONEntry(cal *feed.Calendar, e *feed.Entry) jsonEntry {
 	}
 	j.DayLength, j.DayChange, j.Lamp = seconds(f.DayLength), seconds(f.DayChange), seconds(f.Lamp)
 	if !f.Note { // the kinds whose events carry a day length carry it when it is 0 too, as without --feed
-		if base, _, _ := strings.Cut(e.Kind, ":"); carriesDayLength(base) {
+		if base, _, _ := strings.Cut(e.Kind, ":"); carriesDayLength(base) && !f.LongDay {
 			j.DayLength = roundTo(f.DayLength.Seconds(), 3)
 		}
 		if e.Kind == "daily-summary" {
@@ -423,7 +423,9 @@ func plainCSVRow(e *feed.Event, loc *time.Location) []string {
 	case "solar-noon":
 		row[csvCol.altitude] = rounded(e.Altitude, 4)
 	case "sunrise", "sunset":
-		row[csvCol.dayLength] = rounded(e.DayLength.Seconds(), 3)
+		if !e.LongDay { // the end of the midnight Sun: no day length
+			row[csvCol.dayLength] = rounded(e.DayLength.Seconds(), 3)
+		}
 		row[csvCol.azimuth] = rounded(e.Azimuth, 2)
 	}
 	return row

@@ -414,7 +414,7 @@ func (p *jsonPart) ordered(b []byte, evs []feed.Event, order, spec []int32) []by
 		if t == nil && k.plain && !k.long[dirIndex(e.Direction)] {
 			t = k.template(e.Direction)
 		}
-		if t != nil && e.End.IsZero() && e.Part == "" && !e.DirectSun {
+		if t != nil && e.End.IsZero() && e.Part == "" && !e.DirectSun && !e.LongDay {
 			b = p.plainEvent(b, k, t, e)
 		} else {
 			b = jsonRoom(p.event(b, e, k), jsonBlock)
@@ -450,7 +450,7 @@ func jsonRoom(b []byte, n int) []byte {
 // toJSONEvent and encoding/json.
 func (p *jsonPart) event(b []byte, e *feed.Event, k *jsonKind) []byte {
 	b = append(b, ',')
-	if !k.plain || e.DirectSun || e.Open {
+	if !k.plain || e.DirectSun || e.Open || e.LongDay {
 		obj, err := json.MarshalIndent(toJSONEvent(*e), "    ", "  ")
 		if err != nil { // plain strings and finite numbers: cannot fail
 			panic(err)

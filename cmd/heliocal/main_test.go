@@ -3,11 +3,13 @@ package main
 import (
 	"bytes"
 	"context"
+	"encoding/csv"
 	"encoding/json"
 	"flag"
 	"os"
 	"path/filepath"
 	"regexp"
+	"slices"
 	"strconv"
 	"strings"
 	"testing"
@@ -355,5 +357,54 @@ func TestPublishStartLineCountsShard(t *testing.T) {
 	code, _, errOut := runCLI(t, "--config", one, "publish", "--out", t.TempDir())
 	if code != 0 || !strings.Contains(errOut, "heliocal: publishing 1 feed from "+one+" to ") {
 		t.Errorf("one feed: exit %d, stderr\n%s\nwant \"publishing 1 feed from …\"", code, errOut)
+	}
+}
+
+// The sunset that ends the midnight Sun at 78.92° N, 11.93° E at 00:59:39
+// CEST on 27 August 2027 (PyEphem 22:59:39.023 UT, see
+// feed.TestSunsetEndingMidnightSun) has no day length in any format: its
+// day lasted more than a day, and the length of the date's own day, which
+// its sunrise at 01:30:45 carries, is not its.
+func TestEventsSunsetEndingMidnightSun(t *testing.T) {
+	args := []string{"events", "--lat", "78.92", "--lon", "11.93", "--tz", "Arctic/Longyearbyen",
+		"--from", "2027-08-27", "--to", "2027-08-27", "--kinds", "sunrise,sunset"}
+	code, out, errOut := runCLI(t, append(args, "--format", "json")...)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	var doc struct {
+		Events []struct {
+			Kind      string
+			Start     string
+			DayLength *float64 `json:"day_length_s"`
+		}
+	}
+	if err := json.Unmarshal([]byte(out), &doc); err != nil {
+		t.Fatal(err)
+	}
+	if len(doc.Events) != 2 || doc.Events[0].Kind != "sunset" || !strings.HasPrefix(doc.Events[0].Start, "2027-08-26T22:59:39") {
+		t.Fatalf("events %+v: want the sunset at 22:59:39 UT, then the sunrise", doc.Events)
+	}
+	if set, rise := doc.Events[0], doc.Events[1]; set.DayLength != nil || rise.DayLength == nil {
+		t.Errorf("JSON: the sunset's day_length_s %v, the sunrise's %v; want none, then the day's", set.DayLength, rise.DayLength)
+	}
+	code, out, errOut = runCLI(t, append(args, "--format", "csv")...)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	rows, err := csv.NewReader(strings.NewReader(out)).ReadAll()
+	if err != nil || len(rows) != 3 {
+		t.Fatalf("CSV %q (%v): want a header and two rows", out, err)
+	}
+	col := slices.Index(rows[0], "day_length_s")
+	if rows[1][1] != "sunset" || rows[1][col] != "" || rows[2][col] == "" {
+		t.Errorf("CSV: sunset day_length_s %q, sunrise %q; want none, then the day's", rows[1][col], rows[2][col])
+	}
+	code, out, errOut = runCLI(t, args...)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	if !strings.Contains(out, "00:59:39 CEST  sunset   ends the midnight sun (up for more than a day), azimuth") {
+		t.Errorf("table:\n%s\nwant the sunset at 00:59:39 to say it ends the midnight sun", out)
 	}
 }

@@ -195,8 +195,8 @@ func describeSolar(s *siteInfo, e Event) (string, string) {
 	loc := s.TimeZone.Location
 	typ := l.Type.String()
 	var b strings.Builder
-	fmt.Fprintf(&b, "%s solar eclipse seen from %s, %s to %s.\n", capital(typ), s.where,
-		localClock(l.C1.Time, loc), localClock(l.C4.Time, loc))
+	fmt.Fprintf(&b, "%s solar eclipse seen from %s, %s to %s%s.\n", capital(typ), s.where,
+		localClock(l.C1.Time, loc), localClock(l.C4.Time, loc), DayMark(l.C4.Time, e.Date, loc))
 	line := func(name string, c astro.Contact, extra string) {
 		fmt.Fprintf(&b, "%s %s; %s%s.\n", localClock(c.Time, loc), name, placeAt(e, "Sun", c), extra)
 	}
@@ -269,8 +269,8 @@ func describeLunar(s *siteInfo, ev Event) (string, string) {
 	e := l.Eclipse
 	typ := e.Type.String()
 	var b strings.Builder
-	fmt.Fprintf(&b, "%s lunar eclipse seen from %s, %s to %s.\n", capital(typ), s.where,
-		localClock(l.P1.Time, loc), localClock(l.P4.Time, loc))
+	fmt.Fprintf(&b, "%s lunar eclipse seen from %s, %s to %s%s.\n", capital(typ), s.where,
+		localClock(l.P1.Time, loc), localClock(l.P4.Time, loc), DayMark(l.P4.Time, ev.Date, loc))
 	line := func(name string, c astro.Contact, extra string) {
 		if c.IsZero() {
 			return

@@ -3,6 +3,7 @@ package feed
 import (
 	"context"
 	"math"
+	"regexp"
 	"strings"
 	"testing"
 	"time"
@@ -229,5 +230,25 @@ func TestEclipseBehindSkyline(t *testing.T) {
 		if strings.Contains(e.Title+e.Description, "skyline") {
 			t.Errorf("flat site: %s\n%s", e.Title, e.Description)
 		}
+	}
+}
+
+// The penumbral lunar eclipse of 17 August 2027 runs from 05:24:29.53 to
+// 09:03:12.42 UT (Swiss Ephemeris 2.10.03, testdata/reference/eclipses-swiss.csv,
+// rows "honolulu" and "buenos-aires": a penumbral eclipse's contacts are the
+// same everywhere), 22:24 MST on the 16th to 02:03 MST on the 17th at
+// Phoenix (America/Phoenix, UT − 7 h all year, tz database): the first line
+// of its description marks the end's next date as the other spans do.
+func TestEclipseFirstLineMarksNextDay(t *testing.T) {
+	s := site(t, "phoenix", 33.45, -112.07, "America/Phoenix")
+	es := eclipseEntries(t, s, "2027-08-16", "2027-08-17", "lunar-eclipse")
+	if len(es) != 1 {
+		t.Fatalf("%d entries, want the eclipse of 16–17 August: %+v", len(es), es)
+	}
+	nearTime(t, "first contact", es[0].Start, "2027-08-17T05:24:29Z", 10*time.Second)
+	nearTime(t, "last contact", es[0].End, "2027-08-17T09:03:12Z", 10*time.Second)
+	first, _, _ := strings.Cut(es[0].Description, "\n")
+	if !regexp.MustCompile(`, 22:24:[23]\d MST to 02:03:[01]\d MST \+1 day\.$`).MatchString(first) {
+		t.Errorf("first line %q: want the end marked +1 day", first)
 	}
 }

@@ -867,7 +867,8 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		}
 		b = append(b, ',', ' ', 'o', 'f', 'f', ' ', 'a', 't', ' ',
 			byte('0'+off.h/10), byte('0'+off.h%10), ':', byte('0'+off.m/10), byte('0'+off.m%10), ':', byte('0'+off.s/10), byte('0'+off.s%10), ' ')
-		b = append(append(append(b, off.zone...), ' ', '('), lampHM...)
+		b = append(s.zone.appendDayMark(append(b, off.zone...), e.End, e.Date), ' ', '(') // " +1 day" after midnight
+		b = append(b, lampHM...)
 		if e.Clipped && pi == 1 && off.second() != lt.offSec {
 			if m := movedLimit(s.zone, e.End, lt.off); m != "" {
 				b = append(append(b, "; off "...), m...)
@@ -894,7 +895,7 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 			b = append(append(append(b, " ("...), m...), ')')
 		}
 	}
-	b = off.appendSecond(append(b, ", off at "...))
+	b = s.zone.appendDayMark(off.appendSecond(append(b, ", off at "...)), e.End, e.Date)
 	b = append(append(b, " ("...), lampHM...)
 	if e.Clipped && e.Part != partMorning && lt.offSec >= 0 && off.second() != lt.offSec {
 		if m := movedLimit(s.zone, e.End, lt.off); m != "" {
@@ -919,13 +920,19 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	case e.MadeUp > 0 && e.MadeUpWhy == MadeUpMinimum && e.Dropped < shortestLamps:
 		b = append(append(append(b, "All of the shortfall in one period: the "...), other...), " period would be under 1 min.\n"...)
 	case e.MadeUp > 0 && e.MadeUpWhy == MadeUpMinimum:
-		b = append(appendHM(append(b, "All of the shortfall in one period: the "...), e.Dropped), " "...)
+		b = append(b, "All of the shortfall in one period: the "...)
+		if e.Dropped.Round(time.Minute) >= lampMinimum(lt.key.minimum) {
+			b = appendDuration(b, e.Dropped, time.Second, false) // "9 min 43 s", not "10 min" under a 10 min minimum
+		} else {
+			b = appendHM(b, e.Dropped)
+		}
+		b = append(b, ' ')
 		b = append(append(append(append(b, other...), " period would be under the minimum of "...), lt.minimum...), ".\n"...)
 	case e.MadeUp > 0 && e.MadeUpWhy == MadeUpDark:
-		b = appendHM(b, e.MadeUp)
+		b = sentenceHM(b, e.MadeUp)
 		b = append(append(append(b, " longer than half the shortfall: the short night leaves no more time for the "...), other...), " lamps.\n"...)
 	case e.MadeUp > 0:
-		b = appendHM(b, e.MadeUp)
+		b = sentenceHM(b, e.MadeUp)
 		b = append(append(append(b, " longer than half the shortfall, to make up for the "...), other...), " lamps, which are clipped ("...)
 		b = append(append(b, lt.partLimit(other)...), ").\n"...)
 	}
@@ -939,6 +946,17 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		b = append(b, "The target is not reached today.\n"...)
 	}
 	return b[:len(b)-1], t // without the last line's newline
+}
+
+// sentenceHM appends hm(d) at the start of a sentence: "Under 1 min", not
+// "under 1 min".
+func sentenceHM(b []byte, d time.Duration) []byte {
+	n := len(b)
+	b = appendHM(b, d)
+	if b[n] == 'u' {
+		b[n] = 'U'
+	}
+	return b
 }
 
 // movedLimit says why a lamp period's end at t, clipped by the limit

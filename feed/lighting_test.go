@@ -791,6 +791,53 @@ func TestLightingTitleAfterMidnight(t *testing.T) {
 	if len(es) != 1 || !re.MatchString(es[0].Title) {
 		t.Fatalf("%+v; want one entry titled %s", es, re)
 	}
+	// the description marks the end as the title does
+	off := regexp.MustCompile(`, off at 00:3[5-7]:\d\d UTC-04:00 \+1 day \(6 h 5[1-3] min\)`)
+	if !off.MatchString(es[0].Description) {
+		t.Errorf("description %q; want %s", es[0].Description, off)
+	}
+}
+
+// TestLightingTextsReadTrue checks the sentences of lamp periods that take
+// more than their half of the shortfall, with lamps: both, lighting:16h or
+// 14h, natural civil or sunrise to sunset. At 78.92° N, 11.93° E
+// (Arctic/Longyearbyen, CET = UT + 1 h, tz database) with earliest_on
+// 07:03, latest_off 21:00 and min_duration 10m, the civil dawn of
+// 27 February 2027 at 06:12:31.2 UT (PyEphem 4.1.4, tools/pyephem-checks/
+// values.py, lamp_periods) leaves a morning period of 9 min 31 s, which
+// rounds to the 10 min minimum: the sentence says it to the second. At
+// 48.2° N, 16.4° E (Europe/Vienna, CET) with latest_off 20:00, on 6 January
+// 2027 the sunrise and sunset are 06:44:27.4 and 15:16:00.6 UT (PyEphem
+// 4.1.4, the Sun's centre at −0.8333°, pressure 0, sea level): a day of
+// 8 h 31 min 33 s, a shortfall of 7 h 28 min 27 s, half of it 3 h 44 min
+// 13 s, and the evening to 20:00 CET is 3 h 43 min 59 s, so the morning
+// makes up 14 s: its sentence begins with a capital.
+func TestLightingTextsReadTrue(t *testing.T) {
+	sk := sky(t, "2027-01-01", "2027-12-31")
+	polar := site(t, "polar-shed", 78.92, 11.93, "Arctic/Longyearbyen")
+	spec := lightingSpec(t, "lighting:14h", func(ks *config.KindSpec) {
+		ks.Lamps, ks.Natural, ks.EarliestOn, ks.LatestOff = config.LampsBoth, config.NaturalCivil, "07:03", "21:00"
+		ks.MinDuration = config.Duration(10 * time.Minute)
+	})
+	es, err := sk.Entries(context.Background(), polar, "f", []config.KindSpec{spec}, date("2027-02-27"), date("2027-02-27"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	const minimum = "All of the shortfall in one period: the 9 min 31 s morning period would be under the minimum of 10 min.\n"
+	if len(es) != 1 || es[0].Facts.Part != partEvening || !strings.Contains(es[0].Description, minimum) {
+		t.Errorf("%+v\nwant one evening period saying %q", es, minimum)
+	}
+	vienna := site(t, "vienna", 48.2, 16.4, "Europe/Vienna")
+	spec = lightingSpec(t, "lighting:16h", func(ks *config.KindSpec) { ks.Lamps, ks.LatestOff = config.LampsBoth, "20:00" })
+	es, err = sk.Entries(context.Background(), vienna, "f", []config.KindSpec{spec}, date("2027-01-06"), date("2027-01-06"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	const made = "\nUnder 1 min longer than half the shortfall, to make up for the evening lamps, which are clipped (off no later than 20:00)."
+	if len(es) != 2 || !strings.HasPrefix(es[0].Description, "Morning lamps on at 04:00:00 CET, off at 07:44:27 CET") ||
+		!strings.Contains(es[0].Description, made) {
+		t.Errorf("%+v\nwant the morning from 04:00:00 to the sunrise at 07:44:27 saying %q", es, made)
+	}
 }
 
 // TestLightingLimitSkippedByTheClocks checks a lamp limit that the clocks
@@ -820,7 +867,7 @@ func TestLightingLimitSkippedByTheClocks(t *testing.T) {
 			t.Fatalf("%s: %d entries, want one clipped period", tc.kind, len(es))
 		}
 		e := es[0]
-		if (tc.on != "" && !e.Start.Equal(at)) || (tc.off != "" && (!e.End.Equal(at) || !strings.Contains(e.Description, ", off at 01:30:00 EEST ("))) ||
+		if (tc.on != "" && !e.Start.Equal(at)) || (tc.off != "" && (!e.End.Equal(at) || !strings.Contains(e.Description, ", off at 01:30:00 EEST +1 day ("))) ||
 			!strings.Contains(e.Description, tc.want) {
 			t.Errorf("%s: %s–%s %q\nwant the limit at %s and %q", tc.kind, e.Start, e.End, e.Description, at, tc.want)
 		}

@@ -405,7 +405,9 @@ func naturalCompare(a, b string) int {
 
 // CompareEntries is the order of a calendar's entries: by their site-local
 // Date; a date's all-day entries first, among themselves by AllDayOrder;
-// then its timed ones by Start; then by UID. It is the order of the
+// then its timed ones by Start, those with the same Start (lamps that come
+// on at sunset, and the sunset) by AllDayOrder too, the same on every
+// date; then by UID. It is the order of the
 // builder's preview and the /at table, date by date, in which an entry
 // listed under the evening before (the part of a night after midnight)
 // stays with its date.
@@ -426,6 +428,11 @@ func CompareEntries(a, b *Entry) int {
 	}
 	if c := a.Start.Compare(b.Start); c != 0 {
 		return c
+	}
+	if !a.AllDay { // all-day entries: AllDayOrder said 0 above
+		if c := AllDayOrder(a.Kind, a.Title, b.Kind, b.Title); c != 0 {
+			return c
+		}
 	}
 	return strings.Compare(a.UID, b.UID)
 }
@@ -468,6 +475,11 @@ func sortEntries(es []Entry) []Entry {
 			return cmp.Compare(a.start, b.start)
 		case a.startNs != b.startNs:
 			return cmp.Compare(a.startNs, b.startNs)
+		}
+		if !a.allDay { // all-day entries: AllDayOrder said 0 above
+			if c := AllDayOrder(es[i].Kind, es[i].Title, es[j].Kind, es[j].Title); c != 0 {
+				return c
+			}
 		}
 		return strings.Compare(es[i].UID, es[j].UID)
 	}

@@ -1,12 +1,15 @@
 package feed
 
 import (
+	"context"
 	"math/rand/v2"
 	"slices"
 	"strconv"
 	"strings"
 	"testing"
 	"time"
+
+	"heliocal/config"
 )
 
 // TestSortEntries: the merge of runs puts entries in the order of a plain
@@ -122,6 +125,35 @@ func TestSortEntriesByDate(t *testing.T) {
 				t.Fatalf("spread %d: entry %d is %s (%s %v), want %s (%s %v)", spread, i,
 					got[i].UID, got[i].Kind, got[i].Start, want[i].UID, want[i].Kind, want[i].Start)
 			}
+		}
+	}
+}
+
+// TestSameStartFixedOrder: entries with the same start keep one order on
+// every date, the catalogue's order of kinds (AllDayOrder), not their UIDs'
+// (a hash of the date among others, which swapped them from one date to
+// the next): evening lamps of lighting:16h come on at the sunset that ends
+// the natural day, sunrise to sunset, at the same instant as the sunset
+// entry (the rule of the lighting kind), and the sunset comes first.
+func TestSameStartFixedOrder(t *testing.T) {
+	s := site(t, "farm", 48.2, 16.4, "Europe/Vienna")
+	sk := sky(t, "2027-01-01", "2027-01-14")
+	var specs []config.KindSpec
+	for _, k := range mustKinds(t, "lighting:16h", "sunset") {
+		specs = append(specs, config.KindSpec{Kind: k})
+	}
+	es, err := sk.Entries(context.Background(), s, "farm", specs, date("2027-01-01"), date("2027-01-14"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(es) != 28 {
+		t.Fatalf("%d entries, want a sunset and a lamp period on each of 14 dates", len(es))
+	}
+	for i := 0; i+1 < len(es); i += 2 {
+		a, b := es[i], es[i+1]
+		if !a.Start.Equal(b.Start) || a.Kind != "sunset" || b.Kind != "lighting:16h" {
+			t.Errorf("%s: %s at %s, then %s at %s; want the sunset, then the lamps from the same instant",
+				a.Date.Format(time.DateOnly), a.Kind, a.Start, b.Kind, b.Start)
 		}
 	}
 }

@@ -6,6 +6,7 @@ import (
 	"math"
 	"runtime/debug"
 	"sort"
+	"strconv"
 	"strings"
 	"time"
 
@@ -528,6 +529,20 @@ func stateText(s astro.State) string {
 	return "no event on this date"
 }
 
+// signed writes x with the given decimals for the table, with the minus
+// sign of the feeds' texts ("−3.08"), and none on a value that rounds to
+// zero ("0.00", never "−0.00"). JSON and CSV write numbers as numbers.
+func signed(x float64, decimals int) string {
+	s := strconv.FormatFloat(x, 'f', decimals, 64)
+	if s[0] != '-' {
+		return s
+	}
+	if strings.Trim(s[1:], "0.") == "" {
+		return s[1:]
+	}
+	return "−" + s[1:]
+}
+
 // detailsAt is the table's DETAILS of an event at the site of observer o.
 // A band's span is named in the words of the feeds' titles
 // (feed.SpanWords), with the Sun's highest (lowest) altitude when its
@@ -545,9 +560,9 @@ func detailsAt(e *feed.Event, loc *time.Location, o astro.Observer) string {
 	case words == "" && e.Part != "":
 		parts = append(parts, e.Part)
 	case feed.MergedSpan(*e) && e.Part == "night":
-		parts = append(parts, fmt.Sprintf("%s, Sun at least %.2f°", words, e.Altitude))
+		parts = append(parts, fmt.Sprintf("%s, Sun at least %s°", words, signed(e.Altitude, 2)))
 	case feed.MergedSpan(*e):
-		parts = append(parts, fmt.Sprintf("%s, Sun at most %.2f°", words, e.Altitude))
+		parts = append(parts, fmt.Sprintf("%s, Sun at most %s°", words, signed(e.Altitude, 2)))
 	case words != "":
 		parts = append(parts, words)
 	}
@@ -575,7 +590,7 @@ func detailsAt(e *feed.Event, loc *time.Location, o astro.Observer) string {
 	}
 	switch e.Kind.Name {
 	case "solar-noon", "moon-transit":
-		parts = append(parts, fmt.Sprintf("altitude %.2f°", e.Altitude))
+		parts = append(parts, fmt.Sprintf("altitude %s°", signed(e.Altitude, 2)))
 	case "perihelion", "aphelion":
 		parts = append(parts, fmt.Sprintf("%.6f au", e.Distance))
 	}

@@ -118,7 +118,7 @@ func eclipseDetails(e *feed.Event, loc *time.Location) []string {
 	case e.Lunar != nil:
 		l := e.Lunar.Eclipse
 		parts = append(parts, l.Type.String(), fmt.Sprintf("max %s", clock(l.Max, loc)),
-			fmt.Sprintf("umbral magnitude %.3f", l.UmbralMagnitude))
+			"umbral magnitude "+signed(l.UmbralMagnitude, 3))
 		if !e.Lunar.Max.Up {
 			parts = append(parts, "max below the horizon")
 		}

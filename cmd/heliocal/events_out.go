@@ -877,7 +877,7 @@ type tablePart struct {
 
 func newTableSink(w *bufio.Writer, s *config.Site) *tableSink {
 	loc := s.TimeZone.Location
-	fmt.Fprintf(w, "%s: %s, %g m, %s\n\n", s.Name, feed.Coords(s.Latitude, s.Longitude, 4), s.Elevation, loc)
+	fmt.Fprintf(w, "%s: %s, %s m, %s\n\n", s.Name, feed.Coords(s.Latitude, s.Longitude, 4), signed(s.Elevation, -1), loc)
 	return &tableSink{w: w, loc: loc, o: feed.PlaceOf(s).Observer}
 }
 

@@ -408,3 +408,24 @@ func TestEventsSunsetEndingMidnightSun(t *testing.T) {
 		t.Errorf("table:\n%s\nwant the sunset at 00:59:39 to say it ends the midnight sun", out)
 	}
 }
+
+// The table writes a negative number with the minus sign of the feeds'
+// texts, JSON and CSV with the ASCII hyphen of a number: at 78.92° N,
+// 11.93° E on 21 December 2027 the Sun culminates at 11:10:12 UT at
+// −12.3579° (PyEphem 4.1.4, geometric altitude, the Sun's centre), and the
+// listing's elevation of −5 m is in its heading.
+func TestEventsTableMinusSign(t *testing.T) {
+	args := []string{"events", "--lat", "78.92", "--lon", "11.93", "--elev", "-5", "--tz", "Arctic/Longyearbyen",
+		"--from", "2027-12-21", "--to", "2027-12-21", "--kinds", "solar-noon"}
+	code, out, errOut := runCLI(t, args...)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	if !strings.Contains(out, ", −5 m, ") || !strings.Contains(out, "12:10:12 CET  solar-noon  altitude −12.36°\n") {
+		t.Errorf("table:\n%s\nwant −5 m and altitude −12.36°", out)
+	}
+	code, out, errOut = runCLI(t, append(args, "--format", "json")...)
+	if code != 0 || !strings.Contains(out, `"altitude_deg": -12.3579`) || !strings.Contains(out, `"elevation_m": -5`) {
+		t.Errorf("JSON (exit %d, %s):\n%s\nwant altitude_deg -12.3579", code, errOut, out)
+	}
+}

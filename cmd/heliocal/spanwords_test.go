@@ -24,9 +24,9 @@ func TestTableSpanWordsAsFeed(t *testing.T) {
 		words []string // of the feed's titles, in order
 		says  string   // the table's words with the altitude
 	}{
-		{"2026-04-09", []string{"around midnight", "morning", "around midnight"}, "around midnight, Sun at least -3.95°"},
+		{"2026-04-09", []string{"around midnight", "morning", "around midnight"}, "around midnight, Sun at least −3.95°"},
 		{"2026-10-20", []string{"morning", "morning and evening in one", "evening"}, "morning and evening in one, Sun at most 1.37°"},
-		{"2026-11-01", []string{"morning", "twilight glow, Sun below the horizon", "evening"}, "twilight glow, Sun below the horizon, Sun at most -2.71°"},
+		{"2026-11-01", []string{"morning", "twilight glow, Sun below the horizon", "evening"}, "twilight glow, Sun below the horizon, Sun at most −2.71°"},
 	} {
 		args := []string{"events", "--lat", "78.2", "--lon", "15.6", "--tz", "Arctic/Longyearbyen",
 			"--from", c.day, "--to", c.day, "--kinds", "golden-hour,blue-hour"}

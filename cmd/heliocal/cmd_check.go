@@ -218,8 +218,7 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 			r.Warnings = append(r.Warnings, w.text)
 		}
 		if over {
-			got, most := publish.FormatBytesOver(int64(len(data)), int64(limit))
-			r.Warnings = append(r.Warnings, fmt.Sprintf("feed %q is %s, over service.max_feed_bytes (%s): some web calendars drop events from subscriptions this large; shorten days_back/days_ahead or split the kinds into several feeds", f.ID, got, most))
+			r.Warnings = append(r.Warnings, publish.OversizeWarning(f.ID, len(data), limit))
 		}
 	}
 	return r, notes, nil

@@ -91,6 +91,8 @@ func reloadServe(ctx context.Context, g *globals, log *slog.Logger, srv *serve.S
 // dates (the warnings of check) are logged after the first build, and after
 // a later one only when a limit is newly warned about: a refresh that finds
 // the same limits says nothing, though its window and count of dates moved.
+// A feed over service.max_feed_bytes under service.oversize: warn is
+// served and logged likewise, in the words of check and publish.
 func serveBuild(cfg *config.Config, base string, log *slog.Logger) serve.BuildFunc {
 	var mu sync.Mutex
 	logged := map[string]bool{} // the limits warned about by the latest build
@@ -113,6 +115,16 @@ func serveBuild(cfg *config.Config, base string, log *slog.Logger) serve.BuildFu
 				log.Warn(w.text)
 			}
 			found[w.limit] = true
+		}
+		if opts.Oversize == "" || opts.Oversize == publish.OversizeWarn { // published all the same: say so, as publish does
+			for _, f := range b.Feeds {
+				if limit := opts.MaxFeedBytes; limit > 0 && f.Bytes > limit {
+					if key := "oversize:" + f.ID; !logged[key] {
+						log.Warn(publish.OversizeWarning(f.ID, f.Bytes, limit))
+					}
+					found["oversize:"+f.ID] = true
+				}
+			}
 		}
 		logged = found
 		return b, nil

@@ -1,17 +1,19 @@
 package main
 
 import (
+	"context"
+	"encoding/json"
+	"log/slog"
 	"path/filepath"
 	"regexp"
 	"strings"
 	"testing"
+
+	"heliocal/config"
 )
 
-// The size warning of a feed over service.max_feed_bytes writes sizes one
-// way from check, publish and publish --quiet: "41.2 kB" over "20 kB", never
-// raw bytes.
-func TestOversizeWarningOneForm(t *testing.T) {
-	cfg := writeConfig(t, `service:
+// meadowOversize is a feed of a few hundred kB over a max_feed_bytes of 20 kB.
+const meadowOversize = `service:
   max_feed_bytes: 20000
 sites:
   - id: upper-meadow
@@ -24,7 +26,17 @@ feeds:
     kinds: [sunrise, sunset, civil-dawn, civil-dusk]
     days_back: 0
     days_ahead: 200
-`)
+`
+
+// oversizeWords is the one wording of the size warning, without its
+// "warning: " on standard error.
+var oversizeWords = regexp.MustCompile(`^feed "meadow" is \d+(\.\d+)? kB, over service\.max_feed_bytes \(20 kB\): some web calendars drop events from subscriptions this large; shorten days_back/days_ahead or split the kinds into several feeds$`)
+
+// The size warning of a feed over service.max_feed_bytes writes sizes one
+// way from check, publish and publish --quiet: "41.2 kB" over "20 kB", never
+// raw bytes; and it is the same sentence from each.
+func TestOversizeWarningOneForm(t *testing.T) {
+	cfg := writeConfig(t, meadowOversize)
 	out := filepath.Join(t.TempDir(), "public")
 	raw := regexp.MustCompile(`\d{4,} bytes|\(\d{4,}\)`)
 	sized := regexp.MustCompile(`is \d+(\.\d+)? [kMG]?B, over [^:]*\b20 kB\b`)
@@ -43,5 +55,46 @@ feeds:
 		if warning == "" || raw.MatchString(warning) || !sized.MatchString(warning) {
 			t.Errorf("%v: size warning %q (stderr %q), want sizes as \"41.2 kB\"", args, warning, errOut)
 		}
+		if w, ok := strings.CutPrefix(warning, "warning: "); !ok || !oversizeWords.MatchString(w) {
+			t.Errorf("%v: size warning %q, want \"warning: \" and %s", args, warning, oversizeWords)
+		}
+	}
+}
+
+// serve publishes a feed over max_feed_bytes under oversize: warn (the
+// default) and logs the warning of check and publish, at its first build
+// and not again at a refresh that finds the same feed over.
+func TestServeOversizeWarning(t *testing.T) {
+	c, err := config.Parse(strings.NewReader(meadowOversize), "yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	var logged lockedBuffer
+	b := serveBuild(c, "", slog.New(slog.NewJSONHandler(&logged, nil)))
+	warned := func() []string {
+		var msgs []string
+		dec := json.NewDecoder(strings.NewReader(logged.String()))
+		for dec.More() {
+			var line struct{ Level, Msg string }
+			if err := dec.Decode(&line); err != nil {
+				t.Fatal(err)
+			}
+			if line.Level == "WARN" {
+				msgs = append(msgs, line.Msg)
+			}
+		}
+		return msgs
+	}
+	for range 2 {
+		bundle, err := b(context.Background())
+		if err != nil {
+			t.Fatal(err)
+		}
+		if f := bundle.File("meadow.ics"); f == nil {
+			t.Fatal("meadow.ics not served")
+		}
+	}
+	if got := warned(); len(got) != 1 || !oversizeWords.MatchString(got[0]) {
+		t.Errorf("two builds logged %q, want once %s", got, oversizeWords)
 	}
 }

@@ -151,11 +151,17 @@ func Warnings(st Stats) []string {
 			t.Feed.File, t.To.Format("2006-01-02"), FormatBytes(int64(st.MaxFeedBytes)), FormatBytes(int64(t.Feed.Bytes)), t.Feed.Events))
 	}
 	for _, f := range st.Oversize {
-		size, limit := FormatBytesOver(int64(f.Bytes), int64(st.MaxFeedBytes))
-		out = append(out, fmt.Sprintf("warning: %s is %s, over the %s limit: some web calendars drop events from larger subscriptions; shorten its window or split it by kind",
-			f.File, size, limit))
+		out = append(out, "warning: "+OversizeWarning(f.ID, f.Bytes, st.MaxFeedBytes))
 	}
 	return out
+}
+
+// OversizeWarning is the warning about the feed id of the given size over
+// the limit service.max_feed_bytes, in the one wording of check, publish
+// and serve.
+func OversizeWarning(id string, bytes, limit int) string {
+	size, most := FormatBytesOver(int64(bytes), int64(limit))
+	return fmt.Sprintf("feed %q is %s, over service.max_feed_bytes (%s): some web calendars drop events from subscriptions this large; shorten days_back/days_ahead or split the kinds into several feeds", id, size, most)
 }
 
 func displayDir(dir string) string {

@@ -14,10 +14,10 @@ func TestSummary(t *testing.T) {
 		t.Errorf("Summary:\n got %q\nwant %q", got, want)
 	}
 	st.Shard, st.Index = Shard{2, 8}, IndexPending
-	st.Oversize, st.MaxFeedBytes = []FeedInfo{{File: "farm-all.ics", Bytes: 1_300_000}}, 1_000_000
+	st.Oversize, st.MaxFeedBytes = []FeedInfo{{ID: "farm-all", File: "farm-all.ics", Bytes: 1_300_000}}, 1_000_000
 	got := Summary(st, "/srv/cal/")
 	for _, s := range []string{"published shard 2/8: 12 feeds", "to /srv/cal/; index.html and feeds.json wait for the other shards",
-		"warning: farm-all.ics is 1.3 MB, over the 1 MB limit: some web calendars drop events"} {
+		`warning: feed "farm-all" is 1.3 MB, over service.max_feed_bytes (1 MB): some web calendars drop events`} {
 		if !strings.Contains(got, s) {
 			t.Errorf("summary %q lacks %q", got, s)
 		}

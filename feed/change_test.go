@@ -310,6 +310,38 @@ func TestProfilesDayLengthIsTheSummarys(t *testing.T) {
 	}
 }
 
+// endsOfMidnightSun are the dates on which the midnight Sun ends at two
+// sites, with PyEphem's crossings (tools/pyephem-checks/values.py,
+// midnight_sun_tails): TestDayLengthEndOfMidnightSun,
+// TestDirectSunEndOfMidnightSun.
+var endsOfMidnightSun = []struct {
+	name, zone, day0, day1, day2 string
+	lat, lon                     float64
+	lastSet, rise1, set1         time.Time
+	rise2, set2                  time.Time
+}{
+	{
+		// 78.92° N, 11.93° E, CEST (UTC+2)
+		name: "78.92N", zone: "Arctic/Longyearbyen", day0: "2027-08-26", day1: "2027-08-27", day2: "2027-08-28",
+		lat: 78.92, lon: 11.93,
+		lastSet: time.Date(2027, 8, 26, 22, 59, 39, 23e6, time.UTC),  // 00:59:39 CEST, 27 August
+		rise1:   time.Date(2027, 8, 26, 23, 30, 44, 917e6, time.UTC), // 01:30:45 CEST, 27 August
+		set1:    time.Date(2027, 8, 27, 22, 14, 28, 799e6, time.UTC), // 00:14:29 CEST, 28 August
+		rise2:   time.Date(2027, 8, 28, 0, 15, 22, 857e6, time.UTC),  // 02:15:23 CEST, 28 August
+		set2:    time.Date(2027, 8, 28, 21, 50, 15, 671e6, time.UTC), // 23:50:16 CEST, 28 August
+	},
+	{
+		// McMurdo Station, 77.85° S, 166.67° E, NZDT (UTC+13)
+		name: "77.85S", zone: "Antarctica/McMurdo", day0: "2027-02-19", day1: "2027-02-20", day2: "2027-02-21",
+		lat: -77.85, lon: 166.67,
+		lastSet: time.Date(2027, 2, 19, 12, 41, 48, 49e6, time.UTC),  // 01:41:48 NZDT, 20 February
+		rise1:   time.Date(2027, 2, 19, 13, 34, 39, 625e6, time.UTC), // 02:34:40 NZDT, 20 February
+		set1:    time.Date(2027, 2, 20, 12, 5, 44, 924e6, time.UTC),  // 01:05:45 NZDT, 21 February
+		rise2:   time.Date(2027, 2, 20, 14, 10, 32, 570e6, time.UTC), // 03:10:33 NZDT, 21 February
+		set2:    time.Date(2027, 2, 21, 11, 43, 33, 696e6, time.UTC), // 00:43:34 NZDT, 22 February
+	},
+}
+
 // The date on which the midnight Sun ends, at two sites, against PyEphem
 // (tools/pyephem-checks/values.py, midnight_sun_tails; the same Observer as
 // pyephemRise16's, sea level; the Sun stays above −0.8333° for the 24 h
@@ -322,33 +354,7 @@ func TestProfilesDayLengthIsTheSummarys(t *testing.T) {
 // lighting, is sunrise to sunset alone, and the next date's change is the
 // difference of the two days.
 func TestDayLengthEndOfMidnightSun(t *testing.T) {
-	for _, c := range []struct {
-		name, zone, day0, day1, day2 string
-		lat, lon                     float64
-		lastSet, rise1, set1         time.Time
-		rise2, set2                  time.Time
-	}{
-		{
-			// 78.92° N, 11.93° E, CEST (UTC+2)
-			name: "78.92N", zone: "Arctic/Longyearbyen", day0: "2027-08-26", day1: "2027-08-27", day2: "2027-08-28",
-			lat: 78.92, lon: 11.93,
-			lastSet: time.Date(2027, 8, 26, 22, 59, 39, 23e6, time.UTC),  // 00:59:39 CEST, 27 August
-			rise1:   time.Date(2027, 8, 26, 23, 30, 44, 917e6, time.UTC), // 01:30:45 CEST, 27 August
-			set1:    time.Date(2027, 8, 27, 22, 14, 28, 799e6, time.UTC), // 00:14:29 CEST, 28 August
-			rise2:   time.Date(2027, 8, 28, 0, 15, 22, 857e6, time.UTC),  // 02:15:23 CEST, 28 August
-			set2:    time.Date(2027, 8, 28, 21, 50, 15, 671e6, time.UTC), // 23:50:16 CEST, 28 August
-		},
-		{
-			// McMurdo Station, 77.85° S, 166.67° E, NZDT (UTC+13)
-			name: "77.85S", zone: "Antarctica/McMurdo", day0: "2027-02-19", day1: "2027-02-20", day2: "2027-02-21",
-			lat: -77.85, lon: 166.67,
-			lastSet: time.Date(2027, 2, 19, 12, 41, 48, 49e6, time.UTC),  // 01:41:48 NZDT, 20 February
-			rise1:   time.Date(2027, 2, 19, 13, 34, 39, 625e6, time.UTC), // 02:34:40 NZDT, 20 February
-			set1:    time.Date(2027, 2, 20, 12, 5, 44, 924e6, time.UTC),  // 01:05:45 NZDT, 21 February
-			rise2:   time.Date(2027, 2, 20, 14, 10, 32, 570e6, time.UTC), // 03:10:33 NZDT, 21 February
-			set2:    time.Date(2027, 2, 21, 11, 43, 33, 696e6, time.UTC), // 00:43:34 NZDT, 22 February
-		},
-	} {
+	for _, c := range endsOfMidnightSun {
 		t.Run(c.name, func(t *testing.T) {
 			s := site(t, "polar-"+c.name, c.lat, c.lon, c.zone)
 			sk := sky(t, c.day0, c.day2)
@@ -498,5 +504,84 @@ func TestSummaryMarksCivilDuskAfterMidnight(t *testing.T) {
 	}
 	if d := byDate["2027-06-06"]; strings.Contains(d, "ending the day before") {
 		t.Errorf("summary of 6 June (its dusk passed to 7 June) is marked:\n%s", d)
+	}
+}
+
+// Over a skyline the day length is the time the Sun is over it, by the
+// same rule as over the flat horizon: the end of the midnight Sun after a
+// date's midnight is not the day of a date that has a sunrise of its own,
+// and a day that runs past midnight counts on the date of its sunrise. The
+// daily summary, sunrise, photoperiod, the chart and lighting (which
+// counted it so before the others) give one length. A skyline at one
+// altitude all round gives exactly the results of that single horizon
+// (README), so at 0° the flat horizon's PyEphem values apply
+// (endsOfMidnightSun); over a skyline of hills the lengths are compared
+// with each other, date by date, from ten days before the midnight Sun
+// ends to twenty after.
+func TestDirectSunEndOfMidnightSun(t *testing.T) {
+	for _, c := range endsOfMidnightSun {
+		t.Run(c.name+"/flat skyline", func(t *testing.T) {
+			s := site(t, "polar-"+c.name, c.lat, c.lon, c.zone)
+			s.Skyline = [][2]float64{{0, 0}, {90, 0}, {180, 0}, {270, 0}}
+			sk := sky(t, c.day0, c.day2)
+			events, _, err := sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "sunrise", "daily-summary", "photoperiod:23h", "lighting:23h"), date(c.day0), date(c.day2))
+			if err != nil {
+				t.Fatal(err)
+			}
+			summary := map[string]Event{}
+			byKind := map[string]Event{} // the first of a kind on day1
+			for _, e := range events {
+				d := e.Date.Format(time.DateOnly)
+				if e.Kind.Name == "daily-summary" {
+					summary[d] = e
+				}
+				if _, ok := byKind[e.Kind.String()]; !ok && d == c.day1 {
+					byKind[e.Kind.String()] = e
+				}
+			}
+			w1, w2 := c.set1.Sub(c.rise1), c.set2.Sub(c.rise2)
+			d1, d2 := summary[c.day1], summary[c.day2]
+			if !within(d1.DayLength, w1) || !within(d2.DayLength, w2) || !within(d2.DayChange, w2-w1) {
+				t.Errorf("%s: direct Sun %v; %s: %v, change %v; PyEphem (flat horizon): %v; %v, %v", c.day1, d1.DayLength, c.day2, d2.DayLength, d2.DayChange, w1, w2, w2-w1)
+			}
+			for _, k := range []string{"sunrise", "photoperiod:23h", "lighting:23h"} {
+				if e, ok := byKind[k]; !ok || e.DayLength != d1.DayLength {
+					t.Errorf("%s %s: direct Sun %v (listed %v), want the summary's %v", c.day1, k, e.DayLength, ok, d1.DayLength)
+				}
+			}
+			ps, err := sk.Profiles(PlaceOf(s), date(c.day1), date(c.day1))
+			if err != nil || len(ps) != 1 || ps[0].Daylight != d1.DayLength {
+				t.Errorf("%s: chart %+v (%v), want the summary's direct Sun %v", c.day1, ps, err, d1.DayLength)
+			}
+		})
+		t.Run(c.name+"/hills", func(t *testing.T) {
+			s := site(t, "polar-"+c.name, c.lat, c.lon, c.zone)
+			s.Skyline = [][2]float64{{0, 1}, {90, 4}, {180, 8}, {270, 3}}
+			first, last := date(c.day0).AddDate(0, 0, -10), date(c.day2).AddDate(0, 0, 20)
+			sk := sky(t, first.Format(time.DateOnly), last.Format(time.DateOnly))
+			events, _, err := sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "daily-summary", "lighting:23h59m"), first, last)
+			if err != nil {
+				t.Fatal(err)
+			}
+			summary := map[time.Time]time.Duration{}
+			for _, e := range events {
+				if e.Kind.Name == "daily-summary" {
+					summary[e.Date] = e.DayLength
+				}
+			}
+			lamps := 0
+			for _, e := range events {
+				if e.Kind.Name != config.KindLighting {
+					continue
+				}
+				lamps++
+				if want, ok := summary[e.Date]; !ok || e.DayLength != want {
+					t.Errorf("%s: lighting's direct Sun %v, the summary's %v", e.Date.Format(time.DateOnly), e.DayLength, want)
+				}
+			}
+			if lamps < 20 {
+				t.Errorf("%d lamp periods: want one on most dates, each compared", lamps)
+			}
+		})
 	}
 }

@@ -1501,7 +1501,9 @@ func (c *collector) hidden(k config.Kind) error {
 // 21 h 46 min and 2 min more on the next date; a period of more than a day
 // (the Sun up for days) counts on each date for its own part, except its
 // end on a date with a sunrise of its own (dropLongTails). With a skyline
-// it is the time the Sun is over the skyline within the date.
+// it is the time the Sun is over the skyline, by the same rule (its
+// sunrises and sunsets are the Sun's appearances over it and
+// disappearances behind it), as lighting counts it (daylights).
 func (c *collector) dayLengths() error {
 	if c.lengths != nil {
 		return nil
@@ -1511,27 +1513,25 @@ func (c *collector) dayLengths() error {
 	if err != nil {
 		return err
 	}
-	if alt != skylineKey {
-		// the part of a day that runs past midnight moves from the next
-		// date to the date of its sunrise
-		late, err := c.dayEnds(alt)
-		if err != nil {
-			return err
+	// the part of a day that runs past midnight moves from the next date
+	// to the date of its sunrise
+	late, err := c.dayEnds(alt)
+	if err != nil {
+		return err
+	}
+	starts := c.dayStarts()
+	for i := range l { // late[i] and l[i] are both the date first-2+i
+		if late[i].IsZero() {
+			continue
 		}
-		starts := c.dayStarts()
-		for i := range l { // late[i] and l[i] are both the date first-2+i
-			if late[i].IsZero() {
-				continue
-			}
-			spill := late[i].Sub(starts[i]) // starts[i]: the midnight ending the date
-			l[i] += spill
-			if i+1 < len(l) {
-				l[i+1] -= spill
-			}
+		spill := late[i].Sub(starts[i]) // starts[i]: the midnight ending the date
+		l[i] += spill
+		if i+1 < len(l) {
+			l[i+1] -= spill
 		}
-		if err := c.dropLongTails(l, alt); err != nil {
-			return err
-		}
+	}
+	if err := c.dropLongTails(l, alt); err != nil {
+		return err
 	}
 	c.lengthBefore, c.lengths = l[0], l[1:]
 	return nil

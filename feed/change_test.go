@@ -512,7 +512,8 @@ func TestSummaryMarksCivilDuskAfterMidnight(t *testing.T) {
 // date's midnight is not the day of a date that has a sunrise of its own,
 // and a day that runs past midnight counts on the date of its sunrise. The
 // daily summary, sunrise, photoperiod, the chart and lighting (which
-// counted it so before the others) give one length. A skyline at one
+// counted it so before the others) give one length, and the sunset that
+// ends the midnight Sun gives none. A skyline at one
 // altitude all round gives exactly the results of that single horizon
 // (README), so at 0° the flat horizon's PyEphem values apply
 // (endsOfMidnightSun); over a skyline of hills the lengths are compared
@@ -524,20 +525,32 @@ func TestDirectSunEndOfMidnightSun(t *testing.T) {
 			s := site(t, "polar-"+c.name, c.lat, c.lon, c.zone)
 			s.Skyline = [][2]float64{{0, 0}, {90, 0}, {180, 0}, {270, 0}}
 			sk := sky(t, c.day0, c.day2)
-			events, _, err := sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "sunrise", "daily-summary", "photoperiod:23h", "lighting:23h"), date(c.day0), date(c.day2))
+			events, _, err := sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "sunrise", "sunset", "daily-summary", "photoperiod:23h", "lighting:23h"), date(c.day0), date(c.day2))
 			if err != nil {
 				t.Fatal(err)
 			}
 			summary := map[string]Event{}
 			byKind := map[string]Event{} // the first of a kind on day1
+			ended := false
 			for _, e := range events {
 				d := e.Date.Format(time.DateOnly)
 				if e.Kind.Name == "daily-summary" {
 					summary[d] = e
 				}
+				if e.Kind.Name == "sunset" && within(e.Start.Sub(c.lastSet), 0) {
+					// the end of the midnight Sun: no date's day
+					// (TestSunsetEndingMidnightSun)
+					ended = true
+					if !e.LongDay || e.DayLength != 0 {
+						t.Errorf("the sunset ending the midnight Sun: long day %v, direct Sun %v; want none", e.LongDay, e.DayLength)
+					}
+				}
 				if _, ok := byKind[e.Kind.String()]; !ok && d == c.day1 {
 					byKind[e.Kind.String()] = e
 				}
+			}
+			if !ended {
+				t.Errorf("no sunset at PyEphem's %s, the end of the midnight Sun", c.lastSet.Format(time.RFC3339))
 			}
 			w1, w2 := c.set1.Sub(c.rise1), c.set2.Sub(c.rise2)
 			d1, d2 := summary[c.day1], summary[c.day2]

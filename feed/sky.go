@@ -1123,11 +1123,9 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 	if err := c.dayLengths(); err != nil {
 		return err
 	}
-	var late []time.Time // flat horizon: the sunsets after midnight that end a day
-	if alt != skylineKey {
-		if late, err = c.dayEnds(alt); err != nil {
-			return err
-		}
+	late, err := c.dayEnds(alt) // the sunsets after midnight that end a day
+	if err != nil {
+		return err
 	}
 	for i := range dates {
 		lo, hi := int(byDate[i]), int(byDate[i+1]) // the date's crossings: th.xs[lo:hi]

@@ -80,6 +80,9 @@ func (d *dupFinder) underDuplicate(path string) bool {
 // key records a key of the mapping at parent and returns its path.
 func (d *dupFinder) key(parent, written string, line, col int) string {
 	path := strings.ToLower(written)
+	if path == "" {
+		path = `""` // an empty key (YAML's "&a:", JSON's "") still needs a name
+	}
 	if parent != "" {
 		path = parent + "." + path
 	}

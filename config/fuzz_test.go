@@ -34,6 +34,10 @@ func FuzzParseConfig(f *testing.F) {
 	f.Add([]byte("sites: [{id: a, latitude: 1e308, longitude: -0, timezone: Local}]"), uint8(0))
 	f.Add([]byte(`{"feeds": [{"kinds": [null, {}, [], 1, true]}]}`), uint8(2))
 	f.Add([]byte("[[sites]]\nid = 1979-05-27T07:32:00Z\n"), uint8(1))
+	// an empty key written twice (an anchor with no key), and a key under it
+	// that is not the top-level key of the same name
+	f.Add([]byte("&0000:\n    00: 00000000000\n000000000000:\n&0000:\n000000: 0\n00: 00"), uint8(0))
+	f.Add([]byte(`{"": 1, "": 2}`), uint8(2))
 
 	f.Fuzz(func(t *testing.T, data []byte, fi uint8) {
 		format := fuzzFormats[int(fi)%len(fuzzFormats)]

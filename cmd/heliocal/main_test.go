@@ -407,6 +407,33 @@ func TestEventsSunsetEndingMidnightSun(t *testing.T) {
 	if !strings.Contains(out, "00:59:39 CEST  sunset   ends the midnight sun (up for more than a day), azimuth") {
 		t.Errorf("table:\n%s\nwant the sunset at 00:59:39 to say it ends the midnight sun", out)
 	}
+	// a feed's entries, likewise
+	cfg := writeConfig(t, `sites:
+  - id: isfjell
+    latitude: 78.92
+    longitude: 11.93
+    timezone: Arctic/Longyearbyen
+feeds:
+  - id: isfjell-sun
+    site: isfjell
+    kinds: [sunrise, sunset]
+`)
+	code, out, errOut = runCLI(t, "events", "--config", cfg, "--feed", "isfjell-sun", "--from", "2027-08-27", "--to", "2027-08-27", "--format", "json")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	var entries struct {
+		Entries []struct {
+			Kind      string
+			DayLength *float64 `json:"day_length_s"`
+		}
+	}
+	if err := json.Unmarshal([]byte(out), &entries); err != nil {
+		t.Fatal(err)
+	}
+	if es := entries.Entries; len(es) != 2 || es[0].Kind != "sunset" || es[0].DayLength != nil || es[1].DayLength == nil {
+		t.Errorf("--feed JSON %+v: want the sunset without day_length_s, then the sunrise with it", es)
+	}
 }
 
 // The table writes a negative number with the minus sign of the feeds'

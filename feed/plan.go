@@ -287,8 +287,9 @@ type kindTimes struct {
 	sun    *threshold
 	next   int // sun: the first crossing at or after the start of the date last looked up
 	byDate map[time.Time]dayCrossings
-	c      *collector // the place, the ephemeris and the dates' midnights
-	alt    float64    // byDate: the altitude
+	noons  map[time.Time]time.Time // an evening kind's: the dates' solar noons looked up (noon)
+	c      *collector              // the place, the ephemeris and the dates' midnights
+	alt    float64                 // byDate: the altitude
 	dir    astro.Direction
 	family string
 	kind   config.Kind
@@ -447,19 +448,78 @@ func (kt *kindTimes) after(d, t time.Time) (time.Time, bool, error) {
 	return time.Time{}, false, nil
 }
 
-// slid returns the Sun's event of the kind on the date after d when d has
-// none but crosses the altitude the other way: the event comes later each
-// day and has moved past midnight, from the evening before d to the
-// morning after (a sunset near midnight in spring). It is false for the
-// other kinds and dates.
-func (kt *kindTimes) slid(d time.Time) (time.Time, bool, error) {
-	if kt.sun == nil && kt.byDate == nil {
-		return time.Time{}, false, nil
-	}
-	if dc, err := kt.day(d); err != nil || len(dc.xs) == 0 {
+// evening reports whether the kind is an evening one, a sunset or a dusk:
+// a plan takes it on its date's evening (ofEvening), which may end past
+// midnight, not the first of the date, which may be the evening before's.
+func (kt *kindTimes) evening() bool {
+	return kt.dir == astro.Setting && (kt.sun != nil || kt.byDate != nil)
+}
+
+// ofEvening returns the event of an evening kind on the local date d's
+// evening: the first after the date's solar noon, on d or past midnight,
+// before the next date's noon; false when that evening has none. A setting
+// that follows a rising of its date is after that date's noon (the Sun
+// culminates between them): noon is looked up only for one that does not.
+func (kt *kindTimes) ofEvening(d time.Time) (time.Time, bool, error) {
+	dc, err := kt.day(d)
+	if err != nil {
 		return time.Time{}, false, err
 	}
-	return kt.at(d.AddDate(0, 0, 1))
+	rose := false
+	for _, x := range dc.xs {
+		if x.Direction != kt.dir {
+			rose = true
+			continue
+		}
+		if rose {
+			return x.Time, true, nil
+		}
+		noon, err := kt.noon(d)
+		if err != nil {
+			return time.Time{}, false, err
+		}
+		if x.Time.After(noon) {
+			return x.Time, true, nil
+		}
+		// before noon: the evening before's, past midnight
+	}
+	// none on d: the next date's first, when no rising comes before it
+	// (the setting after one is that date's evening) and it is before
+	// that date's noon
+	next := d.AddDate(0, 0, 1)
+	if dc, err = kt.day(next); err != nil || len(dc.xs) == 0 || dc.xs[0].Direction != kt.dir {
+		return time.Time{}, false, err
+	}
+	noon, err := kt.noon(next)
+	if err != nil || !dc.xs[0].Time.Before(noon) {
+		return time.Time{}, false, err
+	}
+	return dc.xs[0].Time, true, nil
+}
+
+// noon returns the Sun's upper transit (solar noon) on the local date d,
+// or the local noon when the date has none, each date found once.
+func (kt *kindTimes) noon(d time.Time) (time.Time, error) {
+	if t, ok := kt.noons[d]; ok {
+		return t, nil
+	}
+	c := kt.c
+	start, end := c.bounds(d)
+	ts, err := c.sky.eph.SunTransits(c.p.Observer, start, end)
+	if err != nil {
+		return time.Time{}, err
+	}
+	var t time.Time
+	if len(ts) > 0 {
+		t = ts[0].Time
+	} else {
+		t = clockOn(d, 12*time.Hour, c.p.Location)
+	}
+	if kt.noons == nil {
+		kt.noons = map[time.Time]time.Time{}
+	}
+	kt.noons[d] = t
+	return t, nil
 }
 
 // note returns the note of a date without the kind's event, when there is one.
@@ -469,11 +529,30 @@ func (kt *kindTimes) note(d time.Time) (Note, bool) {
 		return n, ok
 	}
 	dc, err := kt.day(d) // found already by at
-	if err != nil || len(dc.xs) > 0 {
+	if err != nil {
+		return Note{}, false
+	}
+	up := dc.up
+	if kt.evening() {
+		// no event that evening: the Sun stays on the side of the altitude
+		// it is on at the date's noon, from the last crossing before it
+		noon, err := kt.noon(d)
+		if err != nil {
+			return Note{}, false
+		}
+		if len(dc.xs) > 0 {
+			up = dc.xs[0].Direction == astro.Setting
+		}
+		for _, x := range dc.xs {
+			if x.Time.Before(noon) {
+				up = x.Direction == astro.Rising
+			}
+		}
+	} else if len(dc.xs) > 0 {
 		return Note{}, false // the Sun crosses the altitude, the other way
 	}
 	n := Note{Kind: kt.kind, Date: d, State: astro.AlwaysBelow, Family: kt.family}
-	if dc.up {
+	if up {
 		n.State = astro.AlwaysAbove
 		if twilight(kt.family) { // white night or midnight sun
 			start, end := kt.c.bounds(d)
@@ -735,8 +814,12 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 		en.Title = pl.cfg.Title + ": no " + pt.startName + " today"
 		en.Facts.Missing = pl.start.Event.String()
 		b = append(append(append(b, "No time today: the start, "...), pt.startName...), ", does not happen on "...)
+		kt := times[pl.start.Event]
+		if kt.evening() {
+			b = append(b, "the evening of "...)
+		}
 		b = d.AppendFormat(b, "Monday 2 January 2006")
-		if n, ok := times[pl.start.Event].note(d); ok {
+		if n, ok := kt.note(d); ok {
 			// the note's title as the reason in brackets, within the
 			// sentence: "(polar night: the Sun does not rise today)"
 			t, _ := describeNote(w.site, n)
@@ -744,17 +827,15 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 				t = string(t[0]+'a'-'A') + t[1:]
 			}
 			b = append(append(append(b, " ("...), t...), ')')
-		} else if t, ok, err := times[pl.start.Event].slid(d); err != nil {
-			return err
-		} else if ok {
-			b = z.appendClock(append(b, " (it has moved past midnight, to "...), t)
-			b = append(z.date(t).AppendFormat(append(b, " on "...), "Monday 2 January"), ')')
 		}
 		return done(append(b, '.'))
 	}
 	en.Start = start
 	b = append(z.appendClock(append(b, "From "...), start), pt.startWords...)
 	b = append(b, skippedClock(*pl.start, start, z)...)
+	if sd := z.date(start); sd.After(d) {
+		b = append(sd.AppendFormat(append(b, " the next day ("...), "Mon 2 Jan"), ')')
+	}
 	switch {
 	case pl.end != nil:
 		end, ok, err := w.planEnd(*pl.end, d, start, times)
@@ -776,7 +857,9 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 		}
 		if ed := z.date(en.End); ed.After(d) {
 			en.Facts.NextDay = true
-			b = append(ed.AppendFormat(append(b, " the next day ("...), "Mon 2 Jan"), ')')
+			if ed.After(z.date(start)) { // said once when the start is past midnight too
+				b = append(ed.AppendFormat(append(b, " the next day ("...), "Mon 2 Jan"), ')')
+			}
 		}
 	}
 	b = append(b, '.')
@@ -790,13 +873,19 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 
 // planTime is the instant of a plan time on the local date d: the clock
 // time (clockOn, from the collector's midnights when it has them: see
-// entryWriter.clockOn), or the event of that date with its offset; false
-// when the event does not happen on d.
+// entryWriter.clockOn), or the event of that date with its offset (an
+// evening kind's: of the date's evening, which may be past midnight);
+// false when the event does not happen on d.
 func (w *entryWriter) planTime(ts config.TimeSpec, d time.Time, times map[config.Kind]*kindTimes) (time.Time, bool, error) {
 	if ts.IsClock {
 		return w.clockOn.clockOnDay(floorDiv(d.Unix(), secondsPerDay), ts.Clock), true, nil
 	}
-	t, ok, err := times[ts.Event].at(d)
+	kt := times[ts.Event]
+	at := kt.at
+	if kt.evening() {
+		at = kt.ofEvening
+	}
+	t, ok, err := at(d)
 	if err != nil || !ok {
 		return time.Time{}, false, err
 	}
@@ -805,9 +894,10 @@ func (w *entryWriter) planTime(ts config.TimeSpec, d time.Time, times map[config
 
 // planEnd is the end of a plan that starts at start on the local date d:
 // a clock time on d, or on the next date when it is not after start; the
-// first event of the end's kind, with its offset, after start, on d or on
-// the next date (of two dusks on d, the one after start; a dusk past
-// midnight, on the next date); false when neither date has one.
+// first event of the end's kind, with its offset, after start (and, for an
+// evening kind, after the date's solar noon), on d or on the next date (of
+// two dusks on d, the one after start; a dusk past midnight, on the next
+// date); false when neither date has one.
 func (w *entryWriter) planEnd(ts config.TimeSpec, d, start time.Time, times map[config.Kind]*kindTimes) (time.Time, bool, error) {
 	if ts.IsClock {
 		end, _, err := w.planTime(ts, d, times)
@@ -817,8 +907,18 @@ func (w *entryWriter) planEnd(ts config.TimeSpec, d, start time.Time, times map[
 		return end, err == nil, err
 	}
 	kt := times[ts.Event]
+	from := start.Add(-ts.Offset)
+	if kt.evening() {
+		noon, err := kt.noon(d)
+		if err != nil {
+			return time.Time{}, false, err
+		}
+		if noon.After(from) {
+			from = noon
+		}
+	}
 	for _, day := range []time.Time{d, d.AddDate(0, 0, 1)} {
-		t, ok, err := kt.after(day, start.Add(-ts.Offset))
+		t, ok, err := kt.after(day, from)
 		if err != nil {
 			return time.Time{}, false, err
 		}

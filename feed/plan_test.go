@@ -411,6 +411,7 @@ func TestPlanAnchorRoundedToMinute(t *testing.T) {
 func TestPlanEndFirstAfterStart(t *testing.T) {
 	wren := site(t, "wren", 52.3, 0, "Europe/London")
 	isfjell := site(t, "isfjell", 78.92, 11.93, "Arctic/Longyearbyen")
+	fjord := site(t, "fjord", 69.7, 19.0, "Europe/Oslo")
 	walk := config.Plan{Title: "Dusk walk", Date: "every friday", Start: "nautical-dusk", End: "astronomical-dusk"}
 	watch := config.Plan{Title: "Fjord watch", Date: "every day", Start: "sunset", End: "civil-dusk"}
 	for _, c := range []struct {
@@ -443,6 +444,14 @@ func TestPlanEndFirstAfterStart(t *testing.T) {
 		{"second dusk of the date, found by date", isfjell, "2027-09-01", "2027-09-30",
 			config.Plan{Title: "Fjord watch", Date: "2027-09-11", Start: "sunset", End: "civil-dusk"}, "2027-09-11",
 			"2027-09-11T19:01:08.424Z", "2027-09-11T21:46:29.433Z", false, "(civil dusk)."},
+		// 69.7° N, 19.0° E, 28 July 2027: an evening end from 00:00 CEST
+		// (22:00 UT on the 27th, tz database: Europe/Oslo, UT + 2 h in
+		// summer) is that evening's sunset, 21:52:26.776 UT, not the
+		// evening before's at 22:04:53.562 UT on the 27th (00:04:54 CEST)
+		// (plan_evening_starts)
+		{"the date's evening", fjord, "2027-07-28", "2027-07-28",
+			config.Plan{Title: "Long day", Date: "every day", Start: "00:00", End: "sunset"}, "2027-07-28",
+			"2027-07-27T22:00:00Z", "2027-07-28T21:52:26.776Z", false, "to 23:52:27 CEST (sunset)."},
 		// 9 September: sunset at 21:19:49 CEST, then no civil dusk until
 		// 22:12:47 UT on the 10th, which is on the 11th in CEST
 		{"none that day or the next", isfjell, "2027-09-09", "2027-09-09", watch, "2027-09-09",
@@ -476,28 +485,84 @@ func TestPlanEndFirstAfterStart(t *testing.T) {
 	}
 }
 
-// TestPlanMissingStartPastMidnight: at 78.92° N, 11.93° E the sunset comes
-// later each day in April until it passes midnight: 23:51:28 CEST on
-// 14 April, then 00:17:31 CEST on the 16th (PyEphem,
-// tools/pyephem-checks/values.py: 21:51:28.353 and 22:17:31.223 UT), so
-// 15 April has none and its note says where it went.
-func TestPlanMissingStartPastMidnight(t *testing.T) {
-	s := site(t, "isfjell", 78.92, 11.93, "Arctic/Longyearbyen")
-	for _, w := range [][2]string{{"2027-04-14", "2027-04-16"}, {"2027-04-01", "2027-04-30"}} {
-		p := config.Plan{Title: "Fjord watch", Date: "every day", Start: "sunset", End: "civil-dusk"}
-		if w[1] == "2027-04-30" {
-			p.Date = "2027-04-15" // found by date
-		}
-		var e *Entry
-		for _, x := range planEntries(t, s, w[0], w[1], p) {
-			if x.Date.Format(time.DateOnly) == "2027-04-15" {
-				e = &x
+// TestPlanEveningStart: a plan that starts at an evening event (a sunset,
+// a dusk) takes the one of its date's evening, the first after the date's
+// solar noon, past midnight too, not the first of the date, which may be
+// the evening before's; an evening without one gets the date's note.
+// Values from PyEphem (tools/pyephem-checks/values.py,
+// plan_ends_past_midnight and plan_evening_starts; the Sun's centre at
+// −0.8333° and −18°).
+func TestPlanEveningStart(t *testing.T) {
+	glen := site(t, "glen", 56.5, -4.0, "Europe/London")
+	fjord := site(t, "fjord", 69.7, 19.0, "Europe/Oslo")
+	isfjell := site(t, "isfjell", 78.92, 11.93, "Arctic/Longyearbyen")
+	party := config.Plan{Title: "Star party", Date: "every day", Start: "astronomical-dusk"}
+	walk := config.Plan{Title: "Sunset walk", Date: "every day", Start: "sunset"}
+	watch := config.Plan{Title: "Fjord watch", Date: "every day", Start: "sunset", End: "civil-dusk"}
+	for _, c := range []struct {
+		name        string
+		s           *config.Site
+		first, last string
+		plan        config.Plan
+		date        string
+		start       string // UTC, PyEphem; "" for the date's note
+		text        string // in the description
+	}{
+		// 56.5° N: astronomical dusk 22:44:17.914 UT on Saturday 24 April
+		// 2027; on the evening of 1 May 23:43:54.004 UT (00:43:54 BST on
+		// the 2nd), not the evening before's 23:30:10.684 UT on 30 April
+		// (00:30:11 BST on 1 May); none on the evening of 2 May
+		{"dusk before midnight", glen, "2027-04-24", "2027-05-02", party, "2027-04-24", "2027-04-24T22:44:17.914Z", "From 23:44:18 BST (astronomical dusk)."},
+		{"dusk past midnight", glen, "2027-04-24", "2027-05-02", party, "2027-05-01", "2027-05-01T23:43:54.004Z",
+			"From 00:43:54 BST (astronomical dusk) the next day (Sun 2 May)."},
+		{"dusk past midnight, found by date", glen, "2027-04-01", "2027-05-31",
+			config.Plan{Title: "Star party", Date: "every saturday", Start: "astronomical-dusk"}, "2027-05-01", "2027-05-01T23:43:54.004Z",
+			"the next day (Sun 2 May)."},
+		{"no dusk that evening", glen, "2027-04-24", "2027-05-02", party, "2027-05-02", "",
+			"does not happen on the evening of Sunday 2 May 2027 (no astronomical dusk or dawn tonight: astronomical twilight lasts all night)."},
+		{"no dusk that evening, found by date", glen, "2027-04-01", "2027-05-31",
+			config.Plan{Title: "Star party", Date: "2027-05-02", Start: "astronomical-dusk"}, "2027-05-02", "",
+			"does not happen on the evening of Sunday 2 May 2027 (no astronomical dusk or dawn tonight: astronomical twilight lasts all night)."},
+		// 69.7° N, 19.0° E: sunsets 22:21:45.115 UT on 26 July 2027
+		// (00:21:45 CEST on the 27th), 22:04:53.562 UT on the 27th (00:04:54
+		// CEST on the 28th), 21:52:26.776 UT on the 28th (23:52:27 CEST)
+		{"sunset past midnight", fjord, "2027-07-26", "2027-07-28", walk, "2027-07-26", "2027-07-26T22:21:45.115Z", "the next day (Tue 27 Jul)."},
+		{"sunset past midnight again", fjord, "2027-07-26", "2027-07-28", walk, "2027-07-27", "2027-07-27T22:04:53.562Z", "the next day (Wed 28 Jul)."},
+		{"sunset before midnight", fjord, "2027-07-26", "2027-07-28", walk, "2027-07-28", "2027-07-28T21:52:26.776Z", "From 23:52:27 CEST (sunset)."},
+		// 78.92° N, 11.93° E: sunset 21:51:28.353 UT on 14 April 2027, then
+		// 22:17:31.223 UT on the 15th (00:17:31 CEST on the 16th)
+		{"the evening of the 14th", isfjell, "2027-04-14", "2027-04-16", watch, "2027-04-14", "2027-04-14T21:51:28.353Z", "From 23:51:28 CEST (sunset)"},
+		{"the evening of the 15th", isfjell, "2027-04-14", "2027-04-16", watch, "2027-04-15", "2027-04-15T22:17:31.223Z",
+			"From 00:17:31 CEST (sunset) the next day (Fri 16 Apr)"},
+		{"the evening of the 15th, found by date", isfjell, "2027-04-01", "2027-04-30",
+			config.Plan{Title: "Fjord watch", Date: "2027-04-15", Start: "sunset", End: "civil-dusk"}, "2027-04-15", "2027-04-15T22:17:31.223Z",
+			"From 00:17:31 CEST (sunset) the next day (Fri 16 Apr)"},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			es := planEntries(t, c.s, c.first, c.last, c.plan)
+			var e *Entry
+			for i, x := range es {
+				if x.Date.Format(time.DateOnly) == c.date {
+					if e != nil {
+						t.Fatalf("two entries on %s", c.date)
+					}
+					e = &es[i]
+				}
 			}
-		}
-		want := "does not happen on Thursday 15 April 2027 (it has moved past midnight, to 00:17:31 CEST on Friday 16 April)."
-		if e == nil || !e.AllDay || !strings.HasSuffix(e.Description, want) {
-			t.Errorf("%v: %+v, want an all-day note ending %q", w, e, want)
-		}
+			if e == nil {
+				t.Fatalf("no entry on %s: %s", c.date, dates(es))
+			}
+			if c.start == "" {
+				if !e.AllDay || e.Facts.Missing != c.plan.Start || !strings.HasSuffix(e.Title, ": no "+inText(config.Kind{Name: c.plan.Start})+" today") {
+					t.Errorf("%+v, want the date's all-day note", e)
+				}
+			} else if start, _ := time.Parse(time.RFC3339, c.start); e.AllDay || !near(e.Start, start, 2*time.Second) {
+				t.Errorf("start %s, want %s (PyEphem)", e.Start.UTC(), start)
+			}
+			if !strings.Contains(e.Description, c.text) {
+				t.Errorf("description\n%s\nwant %q", e.Description, c.text)
+			}
+		})
 	}
 }
 

@@ -13,7 +13,7 @@ TestSummaryShowsSunsetAfterMidnight, TestProfilesDayLengthIsTheSummarys and
 TestDayLengthEndOfMidnightSun;
 astro/atmosphere_test.go TestRefractionScaling; cmd/heliocal/main_test.go
 TestEventsAzimuth; feed/plan_test.go TestPlanEndFirstAfterStart,
-TestPlanMissingStartPastMidnight and TestPlanDateOnlyAnchor; feed/lighting_test.go
+TestPlanDateOnlyAnchor and TestPlanEveningStart; feed/lighting_test.go
 TestLightingMinimumNamesTheDroppedPeriod, TestLightingUnderAMinute and TestLightingEntries).
 
 Definitions, matched to heliocal's:
@@ -205,7 +205,7 @@ def _crossings(lat, lon, h, start, hours):
 
 def plan_ends_past_midnight():
     print("# plans: the first end event after the start (feed/plan_test.go TestPlanEndFirstAfterStart,")
-    print("# TestPlanMissingStartPastMidnight, TestPlanDateOnlyAnchor); twilights: the centre at -6/-12/-18 deg")
+    print("# TestPlanEveningStart, TestPlanDateOnlyAnchor); twilights: the centre at -6/-12/-18 deg")
     print("# 52.3 N, 0 E, sea level, BST (UT + 1 h): the evening of Friday 14 May 2027")
     for name, h in (("nautical dusk", -12), ("astronomical dusk", -18)):
         for t in _crossings(52.3, 0, h, ephem.Date("2027/5/14 12:00"), 18):
@@ -228,6 +228,18 @@ def plan_ends_past_midnight():
             print("%s sunrise %s sunset %s day %s" % (day, iso(rise), iso(sset), fmt_len((sset - rise) * 86400)))
         except ephem.NeverUpError:
             print("%s the Sun does not rise: day 0" % day)
+
+
+def plan_evening_starts():
+    print("# plans at an evening event: the first after the date's noon, past midnight too")
+    print("# (feed/plan_test.go TestPlanEveningStart)")
+    print("# 56.5 N, 4.0 W, sea level, BST (UT + 1 h): astronomical dusk (centre at -18 deg), from noon UT of each date")
+    for day in ("2027/4/24", "2027/4/30", "2027/5/1", "2027/5/2"):
+        ts = _crossings(56.5, -4.0, -18, ephem.Date(day + " 12:00"), 24)
+        print("%s evening: %s" % (day, ", ".join("%s (BST %s)" % (iso(t), ephem.Date(t + HOUR)) for t in ts) or "none"))
+    print("# 69.7 N, 19.0 E, sea level, CEST (UT + 2 h): sunsets from noon UT of 26 July 2027, three days")
+    for t in _crossings(69.7, 19.0, -0.8333, ephem.Date("2027/7/26 12:00"), 72):
+        print("sunset %s (CEST %s)" % (iso(t), ephem.Date(t + 2 * HOUR)))
 
 
 def lamp_periods():
@@ -255,4 +267,5 @@ if __name__ == "__main__":
     refraction_scaled()
     solstice_sunrise()
     plan_ends_past_midnight()
+    plan_evening_starts()
     lamp_periods()

@@ -830,6 +830,41 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 		}
 		return done(append(b, '.'))
 	}
+	var end time.Time
+	if pl.end != nil && pl.end.IsClock {
+		var ok bool
+		if end, ok = w.clockEnd(*pl.end, *pl.start, d, start); !ok || !end.After(start) {
+			// no time that date: the start has passed an afternoon or
+			// evening end, or the clocks skip a start and move it, by
+			// their jump, to or past a later end
+			allDay()
+			st, et := startText(*pl.start), clockText(pl.end.Clock)
+			b = append(append(append(b, "No time today: the start, "...), st...), ", "...)
+			if !ok {
+				en.Title = pl.cfg.Title + ": " + st
+				if !pl.start.IsClock {
+					at := ToMinute(start).In(z.loc)
+					if z.date(start).After(d) {
+						en.Title += " (" + at.Format("15:04 Mon") + ")" // past midnight
+					} else {
+						en.Title += " (" + at.Format("15:04") + ")"
+					}
+					b = z.appendClock(append(b, "at "...), start)
+					if sd := z.date(start); sd.After(d) {
+						b = append(sd.AppendFormat(append(b, " the next day ("...), "Mon 2 Jan"), ')')
+					}
+					b = append(b, ", "...)
+				}
+				en.Title += " comes after the end, " + et
+				b = append(append(b, "comes after the end, "...), et...)
+			} else {
+				en.Title = pl.cfg.Title + ": no time today"
+				b = append(z.appendClock(append(b, "is at "...), start), skippedClock(*pl.start, start, z)...)
+				b = append(append(b, ", not before the end, "...), et...)
+			}
+			return done(append(d.AppendFormat(append(b, ", on "...), "Monday 2 January 2006"), '.'))
+		}
+	}
 	en.Start = start
 	b = append(z.appendClock(append(b, "From "...), start), pt.startWords...)
 	b = append(b, skippedClock(*pl.start, start, z)...)
@@ -837,6 +872,8 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 		b = append(sd.AppendFormat(append(b, " the next day ("...), "Mon 2 Jan"), ')')
 	}
 	switch {
+	case pl.end != nil && pl.end.IsClock:
+		en.End = end
 	case pl.end != nil:
 		end, ok, err := w.planEnd(*pl.end, d, start, times)
 		if err != nil {
@@ -892,20 +929,32 @@ func (w *entryWriter) planTime(ts config.TimeSpec, d time.Time, times map[config
 	return t.Add(ts.Offset), true, nil
 }
 
-// planEnd is the end of a plan that starts at start on the local date d:
-// a clock time on d, or on the next date when it is not after start; the
-// first event of the end's kind, with its offset, after start (and, for an
-// evening kind, after the date's solar noon), on d or on the next date (of
-// two dusks on d, the one after start; a dusk past midnight, on the next
-// date); false when neither date has one.
-func (w *entryWriter) planEnd(ts config.TimeSpec, d, start time.Time, times map[config.Kind]*kindTimes) (time.Time, bool, error) {
-	if ts.IsClock {
-		end, _, err := w.planTime(ts, d, times)
-		if err == nil && !end.After(start) {
-			end, _, err = w.planTime(ts, d.AddDate(0, 0, 1), times)
-		}
-		return end, err == nil, err
+// clockEnd is the end, at the clock time ts, of a plan that starts at
+// start (the time spec from, an instant at) on the local date d: that clock
+// time on d when it is later than the start (a clock start compared as
+// written, so that one the clocks skip, moved, does not put the end on the
+// next day); otherwise on the next date when it is before 12:00 (an end
+// past midnight, "01:00"). An end at or after 12:00 that the start has
+// passed leaves the plan no time that date: false.
+func (w *entryWriter) clockEnd(ts, from config.TimeSpec, d, start time.Time) (time.Time, bool) {
+	day := floorDiv(d.Unix(), secondsPerDay)
+	end := w.clockOn.clockOnDay(day, ts.Clock)
+	if from.IsClock && ts.Clock > from.Clock || !from.IsClock && end.After(start) {
+		return end, true
 	}
+	if ts.Clock >= 12*time.Hour {
+		return time.Time{}, false
+	}
+	end = w.clockOn.clockOnDay(day+1, ts.Clock)
+	return end, end.After(start)
+}
+
+// planEnd is the end of a plan that starts at start on the local date d
+// at an event: the first event of the end's kind, with its offset, after
+// start (and, for an evening kind, after the date's solar noon), on d or on
+// the next date (of two dusks on d, the one after start; a dusk past
+// midnight, on the next date); false when neither date has one.
+func (w *entryWriter) planEnd(ts config.TimeSpec, d, start time.Time, times map[config.Kind]*kindTimes) (time.Time, bool, error) {
 	kt := times[ts.Event]
 	from := start.Add(-ts.Offset)
 	if kt.evening() {
@@ -929,6 +978,23 @@ func (w *entryWriter) planEnd(ts config.TimeSpec, d, start time.Time, times map[
 	return time.Time{}, false, nil
 }
 
+// startText names a plan's start in a sentence: "astronomical dusk", "30
+// min after sunset", "20:00".
+func startText(ts config.TimeSpec) string {
+	switch {
+	case ts.IsClock:
+		return clockText(ts.Clock)
+	case ts.Offset != 0:
+		return offsetTitle(ts.Offset, plainName(ts.Event))
+	}
+	return inText(ts.Event)
+}
+
+// clockText is a plan's clock time as written: "23:30".
+func clockText(c time.Duration) string {
+	return fmt.Sprintf("%02d:%02d", int(c/time.Hour), int(c%time.Hour/time.Minute))
+}
+
 // skippedClock says why a clock time of a plan is shown later than written:
 // the local clock skips it on that date (clocks set forward, as for summer
 // time), so clockOn moved it by the jump. It is "" otherwise.
@@ -949,8 +1015,7 @@ func skippedClock(ts config.TimeSpec, t time.Time, z *zoneCache) string {
 	if lt.IsDST() {
 		why = "the clocks go forward for summer time"
 	}
-	written := fmt.Sprintf("%02d:%02d", int(ts.Clock/time.Hour), int(ts.Clock%time.Hour/time.Minute))
-	return fmt.Sprintf(" (moved from %s, which the clocks skip on %s: %s by %s)", written,
+	return fmt.Sprintf(" (moved from %s, which the clocks skip on %s: %s by %s)", clockText(ts.Clock),
 		lt.Format("Mon 2 Jan 2006"), why, amount(moved))
 }
 

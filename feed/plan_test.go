@@ -2,6 +2,7 @@ package feed
 
 import (
 	"context"
+	"fmt"
 	"regexp"
 	"strings"
 	"testing"
@@ -285,6 +286,62 @@ func TestPlanClockSkipped(t *testing.T) {
 	}
 }
 
+// TestPlanClockSkippedEnd: "an end before the start is on the next day"
+// compares the clock times as written, not a start the clocks skip once
+// moved. In America/Havana the clocks go from 00:00 CST (UT − 5 h) to 01:00
+// CDT (UT − 4 h) on Sunday 14 March 2027 (tz database: Rule Cuba, Mar
+// Sun>=8 0:00s): a skipped clock time moves by the jump, as elsewhere
+// (00:30 is 05:30 UT, 01:30 CDT).
+func TestPlanClockSkippedEnd(t *testing.T) {
+	s := site(t, "hav", 23.13, -82.38, "America/Havana")
+	const moved = "(moved from %s, which the clocks skip on Sun 14 Mar 2027: the clocks go forward for summer time by 1 h)"
+	for _, c := range []struct {
+		name, start, end string
+		date             string
+		from, to         string // UTC; "" for the date's note
+		text             string // in the description
+	}{
+		// 00:30 moves to 01:30 CDT, the end as written: nothing is left
+		{"start moved to the end", "00:30", "01:30", "2027-03-14", "", "",
+			"No time today: the start, 00:30, is at 01:30:00 CDT " + fmt.Sprintf(moved, "00:30") + ", not before the end, 01:30, on Sunday 14 March 2027."},
+		{"start moved before the end", "00:30", "01:45", "2027-03-14", "2027-03-14T05:30:00Z", "2027-03-14T05:45:00Z",
+			"From 01:30:00 CDT " + fmt.Sprintf(moved, "00:30") + " to 01:45:00 CDT."},
+		// both in the skipped hour: both move, the plan keeps its 30 min
+		{"start and end skipped", "00:10", "00:40", "2027-03-14", "2027-03-14T05:10:00Z", "2027-03-14T05:40:00Z",
+			" to 01:40:00 CDT " + fmt.Sprintf(moved, "00:40") + "."},
+		// an end past midnight in the skipped hour: 00:30 the next day
+		{"end skipped the next day", "23:00", "00:30", "2027-03-13", "2027-03-14T04:00:00Z", "2027-03-14T05:30:00Z",
+			"From 23:00:00 CST to 01:30:00 CDT " + fmt.Sprintf(moved, "00:30") + " the next day (Sun 14 Mar)."},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			es := planEntries(t, s, "2027-03-13", "2027-03-15", config.Plan{Title: "Night check", Date: "every day", Start: c.start, End: c.end})
+			var e *Entry
+			for i, x := range es {
+				if x.Date.Format(time.DateOnly) == c.date {
+					e = &es[i]
+				}
+			}
+			if e == nil {
+				t.Fatalf("no entry on %s", c.date)
+			}
+			if !strings.Contains(e.Description, c.text) {
+				t.Errorf("description\n%s\nwant %q", e.Description, c.text)
+			}
+			if c.from == "" {
+				if !e.AllDay || e.Title != "Night check: no time today" {
+					t.Errorf("%+v, want the date's note", e)
+				}
+				return
+			}
+			from, _ := time.Parse(time.RFC3339, c.from)
+			to, _ := time.Parse(time.RFC3339, c.to)
+			if e.AllDay || !e.Start.Equal(from) || !e.End.Equal(to) || e.Facts.NextDay != (c.date == "2027-03-13") {
+				t.Errorf("%s–%s (next day %v), want %s–%s", e.Start.UTC(), e.End.UTC(), e.Facts.NextDay, from, to)
+			}
+		})
+	}
+}
+
 // In America/Santiago the clocks go from 00:00 to 01:00 on Sunday 6
 // September 2026 (tz database): a plan at "00:00" that night starts at 01:00
 // and its description says so.
@@ -561,6 +618,66 @@ func TestPlanEveningStart(t *testing.T) {
 			}
 			if !strings.Contains(e.Description, c.text) {
 				t.Errorf("description\n%s\nwant %q", e.Description, c.text)
+			}
+		})
+	}
+}
+
+// TestPlanEndClockPassed: an end clock time before the start is on the next
+// day only when it is before 12:00; one at or after 12:00 that the start
+// has passed leaves the date no time, and its note says so. At 56.5° N the
+// astronomical dusk is at 23:44:18 BST on Saturday 24 April 2027 and, on
+// the evening of Saturday 1 May, 00:43:54 BST on the 2nd (PyEphem,
+// tools/pyephem-checks/values.py, plan_evening_starts: 22:44:17.914 and
+// 23:43:54.004 UT).
+func TestPlanEndClockPassed(t *testing.T) {
+	glen := site(t, "glen", 56.5, -4.0, "Europe/London")
+	party := func(end string) config.Plan {
+		return config.Plan{Title: "Star party", Date: "every saturday", Start: "astronomical-dusk", End: end}
+	}
+	for _, c := range []struct {
+		name  string
+		plan  config.Plan
+		date  string
+		end   string // UTC; "" for the note
+		title string
+		text  string // in the description
+	}{
+		{"evening end passed", party("23:30"), "2027-04-24", "",
+			"Star party: astronomical dusk (23:44) comes after the end, 23:30",
+			"No time today: the start, astronomical dusk, at 23:44:18 BST, comes after the end, 23:30, on Saturday 24 April 2027."},
+		{"evening end passed past midnight", party("23:30"), "2027-05-01", "",
+			"Star party: astronomical dusk (00:44 Sun) comes after the end, 23:30",
+			"No time today: the start, astronomical dusk, at 00:43:54 BST the next day (Sun 2 May), comes after the end, 23:30, on Saturday 1 May 2027."},
+		// 01:00 BST is 00:00 UT (tz database: Europe/London on summer time,
+		// UT + 1 h, from 28 March 2027)
+		{"end past midnight", party("01:00"), "2027-04-24", "2027-04-25T00:00:00Z",
+			"Star party", "From 23:44:18 BST (astronomical dusk) to 01:00:00 BST the next day (Sun 25 Apr)."},
+		{"start and end past midnight", party("01:00"), "2027-05-01", "2027-05-02T00:00:00Z",
+			"Star party", "From 00:43:54 BST (astronomical dusk) the next day (Sun 2 May) to 01:00:00 BST."},
+		{"clock start after an afternoon end", config.Plan{Title: "Gate", Date: "every saturday", Start: "20:00", End: "18:00"}, "2027-04-24", "",
+			"Gate: 20:00 comes after the end, 18:00", "No time today: the start, 20:00, comes after the end, 18:00, on Saturday 24 April 2027."},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			es := planEntries(t, glen, "2027-04-24", "2027-05-01", c.plan)
+			var e *Entry
+			for i, x := range es {
+				if x.Date.Format(time.DateOnly) == c.date {
+					e = &es[i]
+				}
+			}
+			if e == nil {
+				t.Fatalf("no entry on %s: %s", c.date, dates(es))
+			}
+			if e.Title != c.title || !strings.Contains(e.Description, c.text) {
+				t.Errorf("%q\n%s\nwant %q and %q", e.Title, e.Description, c.title, c.text)
+			}
+			if c.end == "" {
+				if !e.AllDay || e.Facts.NextDay {
+					t.Errorf("%+v, want an all-day note", e)
+				}
+			} else if end, _ := time.Parse(time.RFC3339, c.end); e.AllDay || !e.End.Equal(end) || !e.Facts.NextDay {
+				t.Errorf("end %s (next day %v), want %s the next day", e.End.UTC(), e.Facts.NextDay, end)
 			}
 		})
 	}

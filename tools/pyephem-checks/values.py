@@ -13,7 +13,7 @@ TestSummaryShowsSunsetAfterMidnight, TestProfilesDayLengthIsTheSummarys and
 TestDayLengthEndOfMidnightSun;
 astro/atmosphere_test.go TestRefractionScaling; cmd/heliocal/main_test.go
 TestEventsAzimuth; feed/plan_test.go TestPlanEndFirstAfterStart,
-TestPlanDateOnlyAnchor and TestPlanEveningStart; feed/lighting_test.go
+TestPlanDateOnlyAnchor, TestPlanEveningStart and TestPlanEndClockPassed; feed/lighting_test.go
 TestLightingMinimumNamesTheDroppedPeriod, TestLightingUnderAMinute and TestLightingEntries).
 
 Definitions, matched to heliocal's:
@@ -232,7 +232,7 @@ def plan_ends_past_midnight():
 
 def plan_evening_starts():
     print("# plans at an evening event: the first after the date's noon, past midnight too")
-    print("# (feed/plan_test.go TestPlanEveningStart)")
+    print("# (feed/plan_test.go TestPlanEveningStart, TestPlanEndClockPassed)")
     print("# 56.5 N, 4.0 W, sea level, BST (UT + 1 h): astronomical dusk (centre at -18 deg), from noon UT of each date")
     for day in ("2027/4/24", "2027/4/30", "2027/5/1", "2027/5/2"):
         ts = _crossings(56.5, -4.0, -18, ephem.Date(day + " 12:00"), 24)

@@ -39,9 +39,9 @@ require (
 	github.com/subosito/gotenv v1.6.0 // indirect
 	github.com/teambition/rrule-go v1.8.2 // indirect
 	github.com/tidwall/geoindex v1.7.0 // indirect
-	github.com/tidwall/geojson v1.4.5 // indirect
+	github.com/tidwall/geojson v1.4.5
 	github.com/tidwall/rtree v1.10.0 // indirect
-	github.com/twpayne/go-polyline v1.1.1 // indirect
+	github.com/twpayne/go-polyline v1.1.1
 	go.mongodb.org/mongo-driver v1.11.4 // indirect
 	golang.org/x/text v0.42.0 // indirect
 	rsc.io/qr v0.2.0

@@ -7,8 +7,9 @@ import (
 )
 
 // TestImports keeps config at the bottom of the module: it imports the
-// standard library, viper (and the decoder viper uses) and the cron parser
-// that checks the refresh schedule, and no heliocal package.
+// standard library, viper (and the decoder viper uses), the cron parser
+// that checks the refresh schedule and the zone map's data and geometry,
+// and no heliocal package.
 func TestImports(t *testing.T) {
 	out, err := exec.Command("go", "list", "-f", `{{join .Imports "\n"}}`, ".").Output()
 	if err != nil {
@@ -21,11 +22,12 @@ func TestImports(t *testing.T) {
 		// the decoders' own parsers, to find keys written twice
 		"go.yaml.in/yaml/v3":                       true,
 		"github.com/pelletier/go-toml/v2/unstable": true,
-		// the offline zone map behind ZoneAt
-		"github.com/ringsaturn/tzf":               true,
-		"github.com/ringsaturn/tzf-rel-lite":      true,
-		"github.com/ringsaturn/tzf/gen/go/tzf/v1": true,
-		"google.golang.org/protobuf/proto":        true,
+		// the offline zone map behind ZoneAt: its data, the polylines its
+		// polygons are encoded in, the point-in-polygon test (zonemap.go
+		// decodes the files itself: no protobuf runtime at start)
+		"github.com/ringsaturn/tzf-rel-lite":  true,
+		"github.com/twpayne/go-polyline":      true,
+		"github.com/tidwall/geojson/geometry": true,
 	}
 	for _, imp := range strings.Fields(string(out)) {
 		first, _, _ := strings.Cut(imp, "/")

@@ -7,10 +7,7 @@ import (
 	"sync"
 	"time"
 
-	"github.com/ringsaturn/tzf"
 	tzfrellite "github.com/ringsaturn/tzf-rel-lite"
-	pb "github.com/ringsaturn/tzf/gen/go/tzf/v1"
-	"google.golang.org/protobuf/proto"
 )
 
 // ZoneAt returns the IANA time zone in force at a place (degrees, north and
@@ -34,14 +31,14 @@ func ZoneAt(lat, lon float64) (string, error) {
 	}
 	name := ""
 	if tiles, err := zoneTiles(); err == nil {
-		name = tiles.GetTimezoneName(lon, lat)
+		name = tiles.name(lon, lat)
 	}
 	if name == "" { // near a border: the polygons decide
 		f, err := zoneFinder()
 		if err != nil {
 			return "", err
 		}
-		name = f.GetTimezoneName(lon, lat)
+		name = f.name(lon, lat)
 	}
 	if name == "" {
 		name = nauticalZone(lon)
@@ -99,27 +96,23 @@ func nauticalZone(lon float64) string {
 // zoneTiles loads, once, the tiles that lie wholly within one zone (2 MB in
 // the binary): they answer for most places at a fifth of the cost of the
 // polygons, and exactly as the polygons would.
-var zoneTiles = sync.OnceValues(func() (tzf.F, error) {
-	in := &pb.PreindexTimezones{}
-	if err := proto.Unmarshal(tzfrellite.PreindexData, in); err != nil {
+var zoneTiles = sync.OnceValues(func() (*zoneTileMap, error) {
+	m, err := decodeZoneTiles(tzfrellite.PreindexData)
+	if err != nil {
 		return nil, fmt.Errorf("time zone tiles: %w", err)
 	}
-	return tzf.NewFuzzyFinderFromPB(in)
+	return m, nil
 })
 
 // zoneFinder loads the zone polygons once, when a place falls in a tile that
-// a border crosses: the polygon finder over the compressed simplified
-// polygons (4.7 MB in the binary).
+// a border crosses: the compressed simplified polygons (4.7 MB in the
+// binary), each indexed for the point-in-polygon test.
 var zoneFinder = sync.OnceValues(loadZoneMap)
 
-func loadZoneMap() (tzf.F, error) {
-	in := &pb.CompressedTimezones{}
-	if err := proto.Unmarshal(tzfrellite.LiteCompressData, in); err != nil {
-		return nil, fmt.Errorf("time zone map: %w", err)
-	}
-	f, err := tzf.NewFinderFromCompressed(in, tzf.SetDropPBTZ)
+func loadZoneMap() (*zonePolygons, error) {
+	names, shapes, err := decodeZonePolygons(tzfrellite.LiteCompressData)
 	if err != nil {
 		return nil, fmt.Errorf("time zone map: %w", err)
 	}
-	return f, nil
+	return newZonePolygons(names, shapes), nil
 }

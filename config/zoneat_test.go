@@ -3,14 +3,11 @@ package config
 import (
 	"slices"
 	"strings"
-
-	"github.com/ringsaturn/tzf"
-	tzfrellite "github.com/ringsaturn/tzf-rel-lite"
-	pb "github.com/ringsaturn/tzf/gen/go/tzf/v1"
-	"google.golang.org/protobuf/proto"
 	"sync"
 	"testing"
 	"time"
+
+	tzfrellite "github.com/ringsaturn/tzf-rel-lite"
 )
 
 // The zone of each place below is a fact (the tz database's own comments
@@ -128,9 +125,9 @@ func TestZoneTilesAgreeWithPolygons(t *testing.T) {
 	answered, total := 0, 0
 	check := func(lat, lon float64) {
 		total++
-		if z := tiles.GetTimezoneName(lon, lat); z != "" {
+		if z := tiles.name(lon, lat); z != "" {
 			answered++
-			if ps, _ := polys.GetTimezoneNames(lon, lat); !slices.Contains(ps, z) {
+			if ps := polys.names(lon, lat); !slices.Contains(ps, z) {
 				t.Errorf("%v, %v: tiles say %s, polygons %v", lat, lon, z, ps)
 			}
 		}
@@ -203,11 +200,7 @@ func BenchmarkZoneMapLoad(b *testing.B) {
 
 func BenchmarkZoneTilesLoad(b *testing.B) {
 	for b.Loop() {
-		in := &pb.PreindexTimezones{}
-		if err := proto.Unmarshal(tzfrellite.PreindexData, in); err != nil {
-			b.Fatal(err)
-		}
-		if _, err := tzf.NewFuzzyFinderFromPB(in); err != nil {
+		if _, err := decodeZoneTiles(tzfrellite.PreindexData); err != nil {
 			b.Fatal(err)
 		}
 	}

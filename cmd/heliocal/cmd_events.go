@@ -52,7 +52,7 @@ func newEventsCommand(g *globals) *cobra.Command {
 place is taken from an offline map of the zone boundaries (the nautical zone Etc/GMT±N at
 sea), and a note on stderr names it.
 
-` + kindsHelp() + `
+` + kindsHelpMark + `
 
 Parametrised kinds: sun-altitude:<degrees> (e.g. sun-altitude:-3), sun-band:<low>..<high>
 (degrees, e.g. sun-band:20..35), photoperiod:<duration> (e.g. photoperiod:12h30m),

@@ -43,21 +43,36 @@ func helpWidth(w any, getenv func(string) (string, bool)) int {
 
 // installHelp makes every command's help reflow to the terminal: the long
 // description through wrapText, the flag lists through pflag's wrapping.
+// The usage template that wraps the flags and the list of kinds (see
+// kindsHelpMark) are made when a help or a usage is written, not at every
+// start (≈ 60,000 and 90,000 instructions).
 func installHelp(root *cobra.Command, g *globals) {
 	width := func() int { return helpWidth(g.stdout, g.getenv) }
 	cobra.AddTemplateFunc("helpWidth", width)
-	root.SetUsageTemplate(strings.NewReplacer(
-		".LocalFlags.FlagUsages", "(.LocalFlags.FlagUsagesWrapped helpWidth)",
-		".InheritedFlags.FlagUsages", "(.InheritedFlags.FlagUsagesWrapped helpWidth)",
-	).Replace(root.UsageTemplate()))
+	wrapped := false
+	defaultUsage := root.UsageFunc()
+	root.SetUsageFunc(func(cmd *cobra.Command) error {
+		if !wrapped {
+			root.SetUsageTemplate(strings.NewReplacer(
+				".LocalFlags.FlagUsages", "(.LocalFlags.FlagUsagesWrapped helpWidth)",
+				".InheritedFlags.FlagUsages", "(.InheritedFlags.FlagUsagesWrapped helpWidth)",
+			).Replace(root.UsageTemplate()))
+			wrapped = true
+		}
+		return defaultUsage(cmd)
+	})
 	defaultHelp := root.HelpFunc()
 	root.SetHelpFunc(func(cmd *cobra.Command, args []string) {
 		long := cmd.Long
-		cmd.Long = wrapText(long, width())
+		cmd.Long = wrapText(strings.Replace(long, kindsHelpMark, kindsHelp(), 1), width())
 		defaultHelp(cmd, args)
 		cmd.Long = long
 	})
 }
+
+// kindsHelpMark stands in a command's long description for the list of
+// kinds (kindsHelp), which its help writes in.
+const kindsHelpMark = "\x00kinds\x00"
 
 // wrapText reflows text to width columns (see the comment at the top).
 func wrapText(text string, width int) string {

@@ -69,6 +69,28 @@ func TestHelpWrapped(t *testing.T) {
 	}
 }
 
+// The list of kinds and the usage with wrapped flags are made when help is
+// written, whichever way it is asked for: no help shows the list's mark,
+// and the usage after an unknown help topic wraps the flags as --help does.
+func TestHelpMadeWhenWritten(t *testing.T) {
+	env := map[string]string{"COLUMNS": "50"}
+	for _, args := range [][]string{{"events", "--help"}, {"events", "-h"}, {"help", "events"}} {
+		_, out, _ := runCLIEnv(t, env, args...)
+		if strings.Contains(out, kindsHelpMark) || !strings.Contains(out, "\n  Sun:       sunrise,") {
+			t.Errorf("%s: no list of kinds:\n%s", strings.Join(args, " "), out)
+		}
+	}
+	_, help, _ := runCLIEnv(t, env, "--help")
+	_, unknown, _ := runCLIEnv(t, env, "help", "nosuch")
+	i, j := strings.Index(help, "  -c, --config"), strings.Index(help, "from standard input\n")
+	if i < 0 || j < i || !strings.Contains(help[i:j], "\n") {
+		t.Fatalf("--help at 50 columns: --config not wrapped:\n%s", help)
+	}
+	if config := help[i:j]; !strings.Contains(unknown, config) {
+		t.Errorf("help nosuch:\n%s\nwant --config wrapped as --help wraps it:\n%s", unknown, config)
+	}
+}
+
 func TestWrapText(t *testing.T) {
 	in := "one two three four five six seven\n\nHead:\n  Row:   a, b, c, d, e, f, g, h\n  2  short"
 	want := "one two three\nfour five six\nseven\n\nHead:\n  Row:   a, b,\n         c, d,\n         e, f,\n         g, h\n  2  short"

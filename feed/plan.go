@@ -289,7 +289,7 @@ type kindTimes struct {
 	byDate map[time.Time]dayCrossings
 	noons  map[time.Time]time.Time // an evening kind's: the dates' solar noons looked up (noon)
 	c      *collector              // the place, the ephemeris and the dates' midnights
-	alt    float64                 // byDate: the altitude
+	alt    float64                 // the altitude (skylineKey: the skyline)
 	dir    astro.Direction
 	family string
 	kind   config.Kind
@@ -337,10 +337,10 @@ func (c *collector) sunTimes(k config.Kind, uses int) (*kindTimes, bool, error) 
 	if alt == 0 {
 		alt = c.p.riseAlt()
 	}
-	kt := &kindTimes{dir: sk.dir, family: sk.family, kind: k, loc: c.p.Location, c: c}
+	kt := &kindTimes{dir: sk.dir, family: sk.family, kind: k, loc: c.p.Location, c: c, alt: alt}
 	days := int(c.last.Sub(c.first).Hours()/24) + 1
 	if _, done := c.thresholds[alt]; !done && alt != skylineKey && 3*uses < days {
-		kt.byDate, kt.c, kt.alt = map[time.Time]dayCrossings{}, c, alt
+		kt.byDate = map[time.Time]dayCrossings{}
 		return kt, true, nil
 	}
 	th, err := c.threshold(alt)
@@ -457,18 +457,20 @@ func (kt *kindTimes) evening() bool {
 
 // ofEvening returns the event of an evening kind on the local date d's
 // evening: the first after the date's solar noon, on d or past midnight,
-// before the next date's noon; false when that evening has none. A setting
-// that follows a rising of its date is after that date's noon (the Sun
-// culminates between them): noon is looked up only for one that does not.
+// before the next date's noon; false when that evening has none. Over a
+// flat horizon a setting that follows a rising of its date is after that
+// date's noon (the Sun culminates between them): noon is looked up only for
+// one that does not. A skyline's peaks may hide the Sun and show it again
+// before noon: each of its settings is compared with noon.
 func (kt *kindTimes) ofEvening(d time.Time) (time.Time, bool, error) {
 	dc, err := kt.day(d)
 	if err != nil {
 		return time.Time{}, false, err
 	}
-	rose := false
+	rose, flat := false, kt.alt != skylineKey
 	for _, x := range dc.xs {
 		if x.Direction != kt.dir {
-			rose = true
+			rose = flat
 			continue
 		}
 		if rose {
@@ -483,18 +485,27 @@ func (kt *kindTimes) ofEvening(d time.Time) (time.Time, bool, error) {
 		}
 		// before noon: the evening before's, past midnight
 	}
-	// none on d: the next date's first, when no rising comes before it
-	// (the setting after one is that date's evening) and it is before
-	// that date's noon
+	// none on d: the next date's first, when it is before that date's noon
+	// (over a flat horizon, when no rising comes before it: the setting
+	// after one is that date's evening)
 	next := d.AddDate(0, 0, 1)
-	if dc, err = kt.day(next); err != nil || len(dc.xs) == 0 || dc.xs[0].Direction != kt.dir {
+	if dc, err = kt.day(next); err != nil {
 		return time.Time{}, false, err
 	}
-	noon, err := kt.noon(next)
-	if err != nil || !dc.xs[0].Time.Before(noon) {
-		return time.Time{}, false, err
+	for _, x := range dc.xs {
+		if x.Direction != kt.dir {
+			if flat {
+				break
+			}
+			continue
+		}
+		noon, err := kt.noon(next)
+		if err != nil || !x.Time.Before(noon) {
+			return time.Time{}, false, err
+		}
+		return x.Time, true, nil
 	}
-	return dc.xs[0].Time, true, nil
+	return time.Time{}, false, nil
 }
 
 // noon returns the Sun's upper transit (solar noon) on the local date d,

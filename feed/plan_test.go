@@ -623,6 +623,33 @@ func TestPlanEveningStart(t *testing.T) {
 	}
 }
 
+// TestPlanEveningStartSkyline: over a skyline the Sun may pass behind a peak
+// in the morning and come out again; a plan at sunset takes the evening's,
+// after solar noon, which is the sunset kind's (the date's last
+// disappearance), not the peak's. The valley is invented: a 45° peak to
+// the east-southeast, which the Sun of 21 June 2027 passes behind in the
+// morning (the sun-hidden span, checked before noon).
+func TestPlanEveningStartSkyline(t *testing.T) {
+	s := site(t, "valley", 47.05, 11.2, "Europe/Vienna")
+	s.Skyline = [][2]float64{{0, 3}, {85, 3}, {90, 45}, {103, 45}, {108, 3}, {300, 3}}
+	sk := sky(t, "2027-06-14", "2027-06-28")
+	ev, _, err := sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "sunset", "sun-hidden", "solar-noon"), date("2027-06-21"), date("2027-06-21"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	by := map[string][]Event{}
+	for _, e := range ev {
+		by[e.Kind.Name] = append(by[e.Kind.Name], e)
+	}
+	if len(by["sunset"]) != 1 || len(by["sun-hidden"]) != 1 || len(by["solar-noon"]) != 1 || !by["sun-hidden"][0].End.Before(by["solar-noon"][0].Start) {
+		t.Fatalf("want one sunset and a hidden span before noon: %+v", by)
+	}
+	es := planEntries(t, s, "2027-06-21", "2027-06-21", config.Plan{Title: "Valley dusk", Date: "every day", Start: "sunset"})
+	if len(es) != 1 || !es[0].Start.Equal(by["sunset"][0].Start) {
+		t.Errorf("%+v, want the start at the sunset %s, not the peak's %s", es, by["sunset"][0].Start, by["sun-hidden"][0].Start)
+	}
+}
+
 // TestPlanEndClockPassed: an end clock time before the start is on the next
 // day only when it is before 12:00; one at or after 12:00 that the start
 // has passed leaves the date no time, and its note says so. At 56.5° N the

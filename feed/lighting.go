@@ -664,7 +664,7 @@ func shownAt(t time.Time, z *zoneCache) shownClock {
 	}
 	// ToMinute: to the millisecond, then to the minute, each half up; the
 	// zero time is a whole number of minutes before 1970
-	um := floorDiv(sec*1000+(ns+500_000)/1_000_000+30_000, 60_000) * 60
+	um := floorDiv(sec*1000+int64(uint64(ns+500_000)/1_000_000)+30_000, 60_000) * 60
 	zone, off := z.at(us)
 	s := daySeconds(us + off)
 	// the minute's clock: us's moved by the whole minutes' rounding (at
@@ -678,8 +678,9 @@ func shownAt(t time.Time, z *zoneCache) shownClock {
 	} else if sm >= secondsPerDay {
 		sm -= secondsPerDay
 	}
-	mins := sm / 60
-	return shownClock{h: s / 3600, m: s / 60 % 60, s: s % 60, hm: mins / 60, mm: mins % 60, zone: zone}
+	// 0 ≤ s, sm < secondsPerDay: unsigned divisions
+	us32, mins := uint32(s), uint32(sm)/60
+	return shownClock{h: int(us32 / 3600), m: int(us32 / 60 % 60), s: int(us32 % 60), hm: int(mins / 60), mm: int(mins % 60), zone: zone}
 }
 
 // second is the clock to the second as seconds since midnight.
@@ -688,6 +689,9 @@ func (c shownClock) second() int { return c.h*3600 + c.m*60 + c.s }
 // daySeconds is the time of day, in seconds, of a count of seconds since
 // 1970-01-01 00:00 on some clock.
 func daySeconds(u int64) int {
+	if u >= 0 {
+		return int(uint64(u) % secondsPerDay) // unsigned: see floorDiv
+	}
 	s := u % secondsPerDay
 	if s < 0 {
 		s += secondsPerDay

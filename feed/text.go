@@ -229,6 +229,11 @@ func appendOtherDay(b []byte, at, d time.Time) []byte {
 
 // floorDiv is a/b rounded towards minus infinity (b > 0).
 func floorDiv(a, b int64) int64 {
+	if a >= 0 {
+		// the usual case, unsigned: a division by a constant b is then
+		// a multiplication without the sign's corrections
+		return int64(uint64(a) / uint64(b))
+	}
 	q := a / b
 	if a%b < 0 {
 		q--
@@ -334,12 +339,14 @@ func appendHM(b []byte, d time.Duration) []byte {
 	if d > 0 && d < 30*time.Second { // a dark window of 19 s is not "0 min"
 		return append(b, "under 1 min"...)
 	}
-	// whole minutes, half a minute up (d.Round for d ≥ 0)
-	mins := int64(d / time.Minute)
-	if d%time.Minute >= 30*time.Second {
+	// whole minutes, half a minute up (d.Round for d ≥ 0), divided
+	// unsigned (see floorDiv)
+	ud := uint64(d)
+	mins := ud / uint64(time.Minute)
+	if ud%uint64(time.Minute) >= uint64(30*time.Second) {
 		mins++
 	}
-	h, m := mins/60, int(mins%60)
+	h, m := int64(mins/60), int(mins%60)
 	switch {
 	case h == 0 && m < 10:
 		return append(b, byte('0'+m), ' ', 'm', 'i', 'n')

@@ -485,7 +485,9 @@ func sortEntries(es []Entry) []Entry {
 	}
 	ends := []int32{} // the end of each run but the last
 	for i := int32(1); i < n; i++ {
-		if order(i-1, i) > 0 {
+		// a run's neighbours are mostly of different dates, which the
+		// keys order without a call
+		if a, b := &keys[i-1], &keys[i]; a.date > b.date || a.date == b.date && order(i-1, i) > 0 {
 			ends = append(ends, i)
 		}
 	}
@@ -558,7 +560,18 @@ func byDate(keys []sortKey, idx []int32, order func(i, j int32) int) bool {
 			continue
 		}
 		for j := 1; j < len(run); j++ {
-			for m := j; m > 0 && order(run[m], run[m-1]) < 0; m-- {
+			for m := j; m > 0; m-- {
+				// two timed entries of one date at different instants
+				// (most of a date's) are ordered by their keys' starts,
+				// as order orders them, without a call
+				a, b := &keys[run[m]], &keys[run[m-1]]
+				if a.date == b.date && a.dateNs == b.dateNs && !a.allDay && !b.allDay && (a.start != b.start || a.startNs != b.startNs) {
+					if a.start > b.start || a.start == b.start && a.startNs > b.startNs {
+						break
+					}
+				} else if order(run[m], run[m-1]) >= 0 {
+					break
+				}
 				run[m], run[m-1] = run[m-1], run[m]
 			}
 		}

@@ -651,8 +651,8 @@ const lampText = 320
 // to the second with the zone's abbreviation ("16:42:10 CET"), and to the
 // minute ("16:42"), each found with one look-up of the zone.
 type shownClock struct {
-	h, m, s int    // to the second
-	hm, mm  int    // to the minute
+	h, m, s uint32 // to the second (unsigned: their digits are divided unsigned)
+	hm, mm  uint32 // to the minute
 	zone    string // at the second
 }
 
@@ -680,11 +680,11 @@ func shownAt(t time.Time, z *zoneCache) shownClock {
 	}
 	// 0 ≤ s, sm < secondsPerDay: unsigned divisions
 	us32, mins := uint32(s), uint32(sm)/60
-	return shownClock{h: int(us32 / 3600), m: int(us32 / 60 % 60), s: int(us32 % 60), hm: int(mins / 60), mm: int(mins % 60), zone: zone}
+	return shownClock{h: us32 / 3600, m: us32 / 60 % 60, s: us32 % 60, hm: mins / 60, mm: mins % 60, zone: zone}
 }
 
 // second is the clock to the second as seconds since midnight.
-func (c shownClock) second() int { return c.h*3600 + c.m*60 + c.s }
+func (c shownClock) second() int { return int(c.h*3600 + c.m*60 + c.s) }
 
 // daySeconds is the time of day, in seconds, of a count of seconds since
 // 1970-01-01 00:00 on some clock.
@@ -702,7 +702,7 @@ func daySeconds(u int64) int {
 // appendSecond appends the clock to the second and the zone, as
 // localClock writes it.
 func (c shownClock) appendSecond(b []byte) []byte {
-	return appendClockZone(b, c.h, c.m, c.s, c.zone)
+	return appendClockZone(b, int(c.h), int(c.m), int(c.s), c.zone)
 }
 
 // lightingText is the text of a lighting kind's entries that is the same

@@ -61,7 +61,7 @@ func TestShownAt(t *testing.T) {
 		got := shownAt(u, z)
 		s, m := ToSecond(u).In(loc), ToMinute(u).In(loc)
 		zone, _ := s.Zone()
-		if got.h != s.Hour() || got.m != s.Minute() || got.s != s.Second() || got.zone != zone || got.hm != m.Hour() || got.mm != m.Minute() {
+		if int(got.h) != s.Hour() || int(got.m) != s.Minute() || int(got.s) != s.Second() || got.zone != zone || int(got.hm) != m.Hour() || int(got.mm) != m.Minute() {
 			t.Fatalf("shownAt(%v) = %+v, want %s and %s", u, got, s.Format("15:04:05 MST"), m.Format("15:04"))
 		}
 	}

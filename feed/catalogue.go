@@ -1032,11 +1032,19 @@ func (w *entryWriter) begin(spec *config.KindSpec, evs []Event, specs []config.K
 		}
 	}
 	for i := range evs {
-		if evs[i].Kind != spec.Kind || i > 0 && evs[i].Date.Before(evs[i-1].Date) {
+		if !sameKind(&evs[i].Kind, &spec.Kind) || i > 0 && evs[i].Date.Before(evs[i-1].Date) {
 			return
 		}
 	}
 	st.counted = true
+}
+
+// sameKind is *a == *b, the parameters first and the name by its
+// string's address before its bytes: the events of a kinds entry mostly
+// share the kind's string, and the generated comparison of the structs
+// was a call per event.
+func sameKind(a, b *config.Kind) bool {
+	return a.Altitude == b.Altitude && a.High == b.High && a.DayLength == b.DayLength && sameString(a.Name, b.Name)
 }
 
 // occurrence returns how many entries of the kinds entry being written
@@ -1086,7 +1094,7 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 	}
 	st := &w.cur
 	kind := st.kind
-	if e.Kind != spec.Kind {
+	if !sameKind(&e.Kind, &spec.Kind) {
 		kind = w.kindName(e.Kind)
 	}
 	en := w.next()

@@ -1031,10 +1031,17 @@ func (w *entryWriter) begin(spec *config.KindSpec, evs []Event, specs []config.K
 			return // the same keys twice: counted in seen
 		}
 	}
+	// the dates in order: each not before the one before, compared as
+	// seconds and nanoseconds (Before, without its call)
+	var sec int64
+	var ns int
 	for i := range evs {
-		if !sameKind(&evs[i].Kind, &spec.Kind) || i > 0 && evs[i].Date.Before(evs[i-1].Date) {
+		e := &evs[i]
+		s, n := e.Date.Unix(), e.Date.Nanosecond()
+		if !sameKind(&e.Kind, &spec.Kind) || i > 0 && (s < sec || s == sec && n < ns) {
 			return
 		}
+		sec, ns = s, n
 	}
 	st.counted = true
 }

@@ -125,9 +125,11 @@ func (c *collector) daylights(alt float64) ([]daylight, error) {
 		if j < len(spans) && wholeWithin(spans, j, startN, endN) {
 			// the one period of light of most dates, from its rise to its
 			// set within the date: what the loop below finds for it,
-			// without the loop
+			// without the loop; written field by field (a literal was
+			// made aside and copied in)
 			sp := &spans[j]
-			*dl = daylight{length: time.Duration(sp.s - sp.r), first: xs[sp.ri].Time, last: xs[sp.si].Time}
+			dl.length, dl.first, dl.last, dl.touched = time.Duration(sp.s-sp.r), xs[sp.ri].Time, xs[sp.si].Time, false
+			dl.dawnFrom, dl.duskTo = time.Time{}, time.Time{}
 			if j > 0 {
 				dl.dawnFrom = set(&spans[j-1])
 			}

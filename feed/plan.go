@@ -353,11 +353,11 @@ func (c *collector) sunTimes(k config.Kind, uses int) (*kindTimes, bool, error) 
 
 // day returns the Sun's crossings within the local date d.
 func (kt *kindTimes) day(d time.Time) (dayCrossings, error) {
-	start, end := kt.c.bounds(d)
 	if kt.byDate != nil {
 		if dc, ok := kt.byDate[d]; ok {
 			return dc, nil
 		}
+		start, end := kt.c.bounds(d)
 		eph, o := kt.c.sky.eph, kt.c.p.Observer
 		xs, err := eph.SunCrossings(o, kt.alt, start, end)
 		if err != nil {
@@ -375,10 +375,24 @@ func (kt *kindTimes) day(d time.Time) (dayCrossings, error) {
 		kt.byDate[d] = dc
 		return dc, nil
 	}
+	xs := kt.sun.xs
+	if i := d.Unix()/secondsPerDay - kt.c.first.Unix()/secondsPerDay; i >= 0 && i < int64(len(kt.c.dayDates())) && d == kt.c.dayDates()[i] {
+		// a date of the collector's: its crossings from the index of
+		// the threshold's by date (dateCrossings), which finds them as
+		// the search below does (a local midnight is a whole second)
+		at := kt.c.dateCrossings(kt.sun)
+		lo, hi := at[i], at[i+1]
+		up := kt.sun.upFirst
+		if lo > 0 {
+			up = xs[lo-1].Direction == astro.Rising
+		}
+		kt.next = int(lo)
+		return dayCrossings{xs: xs[lo:hi], up: up}, nil
+	}
 	// the crossings from start to end: a plan's dates come in order, so
 	// the search goes on from the last date's (next) when it lies before
 	// start, and compares the instants as Unix nanoseconds
-	xs := kt.sun.xs
+	start, end := kt.c.bounds(d)
 	startN, endN := start.UnixNano(), end.UnixNano()
 	i := kt.next
 	if i > 0 && xs[i-1].Time.UnixNano() >= startN {

@@ -356,20 +356,59 @@ var kindRank = func() map[string]int {
 // the year, the Moon, eclipses; plans after them all), then the kind as
 // written, then the title.
 func AllDayOrder(aKind, aTitle, bKind, bTitle string) int {
-	rank := func(k string) int {
-		base, _, _ := strings.Cut(k, ":")
-		if r, ok := kindRank[base]; ok {
-			return r
-		}
-		return len(kindRank)
-	}
+	return allDayOrder(aKind, aTitle, bKind, bTitle, nil)
+}
+
+// allDayOrder is AllDayOrder with the kinds' ranks from kr (nil: each
+// looked up).
+func allDayOrder(aKind, aTitle, bKind, bTitle string, kr *kindRanks) int {
 	if aKind != bKind {
-		if c := rank(aKind) - rank(bKind); c != 0 {
+		if c := kr.of(aKind) - kr.of(bKind); c != 0 {
 			return c
 		}
 		return naturalCompare(aKind, bKind)
 	}
 	return strings.Compare(aTitle, bTitle)
+}
+
+// kindRankOf is the rank of a kind as written ("photoperiod:12h") in
+// AllDayOrder: its base name's place in the catalogue, any other after
+// them all.
+func kindRankOf(k string) int {
+	base, _, _ := strings.Cut(k, ":")
+	if r, ok := kindRank[base]; ok {
+		return r
+	}
+	return len(kindRank)
+}
+
+// kindRanks keeps the ranks (kindRankOf) of the first kinds a sort asks
+// for, by their strings: the entries of one kinds entry share the kind's
+// string, and a sort asks for a rank at every tie (a lamp period and the
+// sunset it starts at), where looking it up in kindRank cost more than
+// the rest of the comparison.
+type kindRanks struct {
+	n    int
+	kind [8]string
+	rank [8]int
+}
+
+// of returns kindRankOf(k), kept in kr (when kr is not nil).
+func (kr *kindRanks) of(k string) int {
+	if kr == nil {
+		return kindRankOf(k)
+	}
+	for i := range kr.n {
+		if sameString(kr.kind[i], k) {
+			return kr.rank[i]
+		}
+	}
+	r := kindRankOf(k)
+	if kr.n < len(kr.kind) {
+		kr.kind[kr.n], kr.rank[kr.n] = k, r
+		kr.n++
+	}
+	return r
 }
 
 // naturalCompare orders strings as text, but runs of digits by their value:
@@ -453,6 +492,7 @@ func sortEntries(es []Entry) []Entry {
 		e := &es[i]
 		keys[i] = sortKey{date: e.Date.Unix(), dateNs: int32(e.Date.Nanosecond()), start: e.Start.Unix(), startNs: int32(e.Start.Nanosecond()), allDay: e.AllDay}
 	}
+	var ranks kindRanks
 	order := func(i, j int32) int {
 		a, b := &keys[i], &keys[j]
 		switch {
@@ -466,7 +506,7 @@ func sortEntries(es []Entry) []Entry {
 			}
 			return 1
 		case a.allDay:
-			if c := AllDayOrder(es[i].Kind, es[i].Title, es[j].Kind, es[j].Title); c != 0 {
+			if c := allDayOrder(es[i].Kind, es[i].Title, es[j].Kind, es[j].Title, &ranks); c != 0 {
 				return c
 			}
 		}
@@ -477,7 +517,7 @@ func sortEntries(es []Entry) []Entry {
 			return cmp.Compare(a.startNs, b.startNs)
 		}
 		if !a.allDay { // all-day entries: AllDayOrder said 0 above
-			if c := AllDayOrder(es[i].Kind, es[i].Title, es[j].Kind, es[j].Title); c != 0 {
+			if c := allDayOrder(es[i].Kind, es[i].Title, es[j].Kind, es[j].Title, &ranks); c != 0 {
 				return c
 			}
 		}

@@ -454,14 +454,39 @@ func parseTimeSpec(t string, suggest bool) (TimeSpec, *RuleError) {
 		return TimeSpec{}, &RuleError{Msg: fmt.Sprintf("unknown kind %q", name), Hint: hint}
 	}
 	if !k.IsInstant() {
-		return TimeSpec{}, &RuleError{Msg: fmt.Sprintf("%q does not give one time a day", k.String()),
-			Hint: "use sunrise, sunset, solar-noon, a dawn or dusk, moonrise, moonset, moon-transit or a phase or season"}
+		return TimeSpec{}, notInstant(k)
 	}
 	if offset < -MaxOffset || offset > MaxOffset {
 		return TimeSpec{}, &RuleError{Msg: "offset must be within -12h..12h", Hint: `e.g. "sunset+30m"`}
 	}
 	return TimeSpec{Event: k, Offset: offset}, nil
 }
+
+// notInstant says why the kind k, known but no instant, cannot be a plan's
+// start or end, and names every kind that can.
+func notInstant(k Kind) *RuleError {
+	why := "gives spans, not one instant"
+	switch {
+	case k.IsGroup():
+		names := make([]string, 0, 4)
+		for _, m := range k.Members() {
+			names = append(names, m.Name)
+		}
+		why = "stands for several kinds: name one of them (" + strings.Join(names, ", ") + ")"
+	case k.Name == KindPhotoperiod:
+		why = "gives dates, not a time of day: as a date rule (date: " + k.String() + ") it picks the dates"
+	case k.IsAllDay():
+		why = "gives one all-day entry a date, not a time of day"
+	case k.Name == KindSunAltitude:
+		why = "is crossed twice a day, rising and setting, not once"
+	}
+	return &RuleError{Msg: fmt.Sprintf("%q %s", k.String(), why), Hint: instantHint}
+}
+
+// instantHint names what a plan's start and end can be: every instant
+// kind, and a local time.
+var instantHint = "a plan starts and ends at one of " + strings.Join(instantNames, ", ") +
+	`, with an optional offset ("sunset+30m"), or at a local time "20:00"`
 
 // nearTimeSpec returns the plan time that t, whose kind name is unknown,
 // most likely means: the instant kind nearest to name with t's offset as

@@ -167,3 +167,42 @@ feeds:
 		t.Errorf("problems:\n%v\nwant:\n%v", ps, want)
 	}
 }
+
+// A start or end that is a known kind but no instant says why, and the
+// hint names exactly the kinds that are allowed: each of them parses as a
+// plan time, and no other kind does.
+func TestPlanTimeNotInstant(t *testing.T) {
+	for _, tc := range []struct{ in, msg string }{
+		{"golden-hour", `"golden-hour" gives spans, not one instant`},
+		{"dark-window+10m", `"dark-window" gives spans, not one instant`},
+		{"lighting:16h", `"lighting:16h" gives spans, not one instant`},
+		{"solar-eclipse", `"solar-eclipse" gives spans, not one instant`},
+		{"seasons", `"seasons" stands for several kinds: name one of them (march-equinox, june-solstice, september-equinox, december-solstice)`},
+		{"moon-phases-1h", `"moon-phases" stands for several kinds: name one of them (new-moon, first-quarter, full-moon, last-quarter)`},
+		{"photoperiod:12h", `"photoperiod:12h" gives dates, not a time of day: as a date rule (date: photoperiod:12h) it picks the dates`},
+		{"daily-summary", `"daily-summary" gives one all-day entry a date, not a time of day`},
+		{"sun-altitude:-3", `"sun-altitude:-3" is crossed twice a day, rising and setting, not once`},
+	} {
+		_, err := ParseTimeSpec(tc.in)
+		var re *RuleError
+		if !errors.As(err, &re) || re.Msg != tc.msg || re.Hint != instantHint {
+			t.Errorf("time %q: %v, want %s (%s)", tc.in, err, tc.msg, instantHint)
+		}
+	}
+	list := strings.TrimPrefix(instantHint, "a plan starts and ends at one of ")
+	list, _, _ = strings.Cut(list, `, with an optional offset`)
+	named := strings.Split(list, ", ")
+	for _, name := range named {
+		if _, err := ParseTimeSpec(name); err != nil {
+			t.Errorf("the hint names %q, which is refused: %v", name, err)
+		}
+	}
+	for _, name := range KindNames {
+		if _, err := ParseTimeSpec(name); err == nil && !slices.Contains(named, name) {
+			t.Errorf("%q is a plan time the hint does not name", name)
+		}
+	}
+	if len(named) != len(instantNames) {
+		t.Errorf("the hint names %d kinds, want %d: %s", len(named), len(instantNames), instantHint)
+	}
+}

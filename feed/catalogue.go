@@ -238,6 +238,7 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 		if err := col.add(spec.Kind); err != nil {
 			return nil, nil, fmt.Errorf("%s: %w", spec.Kind, err)
 		}
+		col.noteUnderMinimum(spec, n0)
 		w.out = slices.Grow(w.out, len(col.events)-n0+len(col.notes)-m0)
 		if spec.Kind.Name == config.KindLighting {
 			w.text = slices.Grow(w.text, (len(col.events)-n0)*lampText)
@@ -1231,7 +1232,7 @@ func (w *entryWriter) note(n Note) {
 		AllDay:      true,
 		Date:        n.Date,
 		Alarm:       w.alarm,
-		Facts:       Facts{Note: true, State: n.State, Until: n.Until, DayLength: n.DayLength, DirectSun: n.DirectSun, Short: n.Lamp > 0},
+		Facts:       Facts{Note: true, State: n.State, Until: n.Until, DayLength: n.DayLength, DirectSun: n.DirectSun, Short: n.Lamp > 0, Longest: n.Longest},
 	})
 }
 

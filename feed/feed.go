@@ -64,6 +64,7 @@ type Facts struct {
 	DayChange   time.Duration   // daily summary: change from the day before
 	Lamp        time.Duration   // lighting: the lamp period's length
 	Short       bool            // lighting: clipped, the target is not reached
+	Longest     time.Duration   // span notes: the date's spans are all under min_duration, the longest is this long
 	NextDay     bool            // plans: the end falls on the next local date
 	Open        bool            // bands: not left before the window ends; End is the window's end
 	Missing     string          // plans: the start event that does not happen on the date

@@ -31,7 +31,8 @@ func TestDateFilters(t *testing.T) {
 }
 
 // TestMinDuration drops dark windows shorter than 45 minutes and keeps
-// every other one.
+// every other one; a night whose windows are all shorter gets a note in
+// their place.
 func TestMinDuration(t *testing.T) {
 	s := site(t, "hill", 39.08, -105.42, "America/Denver")
 	sk := sky(t, "2027-01-01", "2027-03-31")
@@ -45,20 +46,35 @@ func TestMinDuration(t *testing.T) {
 		t.Fatal(err)
 	}
 	short := 0
+	longest := map[time.Time]time.Duration{} // by night: its longest window
 	for _, e := range all {
-		if !e.AllDay && e.End.Sub(e.Start) < 45*time.Minute {
+		if e.AllDay {
+			continue
+		}
+		l := e.End.Sub(e.Start)
+		if l < 45*time.Minute {
 			short++
 		}
+		longest[e.Date] = max(longest[e.Date], l)
 	}
 	if short == 0 {
 		t.Fatal("no short dark window in the quarter: the test checks nothing")
 	}
-	if len(kept) != len(all)-short {
-		t.Errorf("%d entries kept of %d with %d short ones", len(kept), len(all), short)
+	noted := 0
+	for _, l := range longest {
+		if l < 45*time.Minute {
+			noted++
+		}
+	}
+	if len(kept) != len(all)-short+noted {
+		t.Errorf("%d entries kept of %d with %d short ones and %d nights of short ones alone", len(kept), len(all), short, noted)
 	}
 	for _, e := range kept {
 		if !e.AllDay && e.End.Sub(e.Start) < 45*time.Minute {
 			t.Errorf("kept a %s dark window on %s", e.End.Sub(e.Start), e.Date.Format(time.DateOnly))
+		}
+		if e.Facts.Longest > 0 && e.Facts.Longest != longest[e.Date] {
+			t.Errorf("note on %s: longest %s, want %s", e.Date.Format(time.DateOnly), e.Facts.Longest, longest[e.Date])
 		}
 	}
 }

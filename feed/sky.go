@@ -153,6 +153,10 @@ type Note struct {
 	// on which the Sun does not set either (midnight sun): there is no
 	// twilight that night, only daylight.
 	SunUp bool
+	// Longest is, for a note of a date whose spans are all shorter than
+	// the kind's min_duration (Minimum), the longest of them
+	// (noteUnderMinimum); zero for other notes.
+	Longest, Minimum time.Duration
 }
 
 // Place is where events are computed: an observer and the zone whose local

@@ -1173,6 +1173,10 @@ func describeNote(s *siteInfo, n Note) (string, string) {
 		t := NotReachedText(n)
 		return t, t + ": no date of this calendar crosses it."
 	}
+	if n.Longest > 0 {
+		title, why := underMinimumText(n)
+		return title, title + why + "."
+	}
 	if n.State == astro.Crosses && !n.Kind.IsMoon() {
 		title, desc = noEventToday(n.Kind)
 		return title, desc + "."

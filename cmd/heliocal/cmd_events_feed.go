@@ -193,6 +193,9 @@ func toJSONEntry(cal *feed.Calendar, e *feed.Entry) jsonEntry {
 		if strings.HasPrefix(e.Kind, config.KindLighting+":") {
 			j.State = lampState(f.Short)
 		}
+		if f.Longest > 0 { // spans on the date, all left out by min_duration
+			j.State = underMinDuration
+		}
 		if !f.Until.IsZero() {
 			j.Until = f.Until.Format(time.DateOnly)
 		}
@@ -571,6 +574,10 @@ func streamEntries(st *ical.Stream, pending, entries []feed.Entry) ([]feed.Entry
 
 // entryBefore is the order of a calendar's entries (feed.CompareEntries).
 func entryBefore(a, b *feed.Entry) bool { return feed.CompareEntries(a, b) < 0 }
+
+// underMinDuration is the JSON state of a note of a span kind on a date
+// whose spans are all shorter than the kind's min_duration.
+const underMinDuration = "under-min-duration"
 
 // lampState is the JSON state of a lighting note: lamps needed but none
 // scheduled (all under the kind's min_duration), or none needed.

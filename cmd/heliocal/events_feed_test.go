@@ -454,3 +454,49 @@ feeds:
 		}
 	}
 }
+
+// A night whose dark windows are all shorter than min_duration is a note
+// in `events --feed`, its JSON and CSV state "under-min-duration": at
+// 50° N, 10° E the only window of the night of 12–13 May 2027 runs from
+// moonset at 00:37:00 UTC to astronomical dawn at 00:59:42 UTC, 22.70 min
+// (PyEphem 4.1: pressure 0, the Moon's upper limb at −34′, the Sun's
+// centre at −18°).
+func TestEventsFeedUnderMinimumNote(t *testing.T) {
+	cfg := writeConfig(t, `
+sites:
+  - id: mid
+    latitude: 50
+    longitude: 10
+    timezone: Europe/Berlin
+feeds:
+  - id: dark
+    site: mid
+    kinds:
+      - kind: dark-window
+        min_duration: 45m
+`)
+	const title = "No dark sky of 45 min or more on the night of 12–13 May 2027: the longest dark window is 23 min"
+	code, out, errOut := runCLI(t, "--config", cfg, "events", "--feed", "dark", "--from", "2027-05-12", "--to", "2027-05-12", "--format", "json")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	var got struct{ Entries []jsonEntry }
+	if err := json.Unmarshal([]byte(out), &got); err != nil {
+		t.Fatal(err)
+	}
+	if len(got.Entries) != 1 || got.Entries[0].Title != title || !got.Entries[0].Note || got.Entries[0].State != "under-min-duration" || !got.Entries[0].AllDay {
+		t.Errorf("json entries %+v, want one note %q, state under-min-duration", got.Entries, title)
+	}
+	code, out, errOut = runCLI(t, "--config", cfg, "events", "--feed", "dark", "--from", "2027-05-12", "--to", "2027-05-12", "--format", "csv")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	rows, err := csv.NewReader(strings.NewReader(out)).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	state, titleCol := slices.Index(rows[0], "state"), slices.Index(rows[0], "title")
+	if len(rows) != 2 || rows[1][state] != "under-min-duration" || rows[1][titleCol] != title {
+		t.Errorf("csv rows %q, want one note, state under-min-duration", rows)
+	}
+}

@@ -353,15 +353,7 @@ func nearWeekday(w string) string {
 	if near := closest(w, weekdayNames); near != "" {
 		return near
 	}
-	if near := closest(w, weekdayFull); near != "" {
-		return near
-	}
-	for _, n := range weekdayFull {
-		if len(w) >= 3 && strings.HasPrefix(n, w) {
-			return n
-		}
-	}
-	return ""
+	return nearIn(w, weekdayFull)
 }
 
 // nearDay is what a misspelt word after "every" most likely means: "day"
@@ -377,12 +369,18 @@ func nearDay(w string) string {
 // within a few edits ("neerest", "befor") or the one it begins ("near",
 // "aft"), or "".
 func nearRelation(w string) string {
-	if near := closest(w, relations); near != "" {
+	return nearIn(w, relations)
+}
+
+// nearIn is the word of names within a few edits of w, or else the one w
+// begins (three letters at least), or "".
+func nearIn(w string, names []string) string {
+	if near := closest(w, names); near != "" {
 		return near
 	}
-	for _, r := range relations {
-		if len(w) >= 3 && strings.HasPrefix(r, w) {
-			return r
+	for _, n := range names {
+		if len(w) >= 3 && strings.HasPrefix(n, w) {
+			return n
 		}
 	}
 	return ""

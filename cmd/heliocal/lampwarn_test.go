@@ -190,20 +190,7 @@ func TestServeLampLimitWarning(t *testing.T) {
 	}
 	var logged lockedBuffer
 	b := serveBuild(c, "", slog.New(slog.NewJSONHandler(&logged, nil)))
-	warned := func() []string {
-		var msgs []string
-		dec := json.NewDecoder(strings.NewReader(logged.String()))
-		for dec.More() {
-			var line struct{ Level, Msg string }
-			if err := dec.Decode(&line); err != nil {
-				t.Fatal(err)
-			}
-			if line.Level == "WARN" {
-				msgs = append(msgs, line.Msg)
-			}
-		}
-		return msgs
-	}
+	warned := func() []string { return warnings(t, &logged) }
 	if _, err := b(context.Background()); err != nil {
 		t.Fatal(err)
 	}
@@ -239,4 +226,22 @@ func TestDemoHasNoLampLimitWarning(t *testing.T) {
 			}
 		}
 	}
+}
+
+// warnings returns the messages of the WARN lines a JSON slog handler has
+// written to logged, in order.
+func warnings(t *testing.T, logged *lockedBuffer) []string {
+	t.Helper()
+	var msgs []string
+	dec := json.NewDecoder(strings.NewReader(logged.String()))
+	for dec.More() {
+		var line struct{ Level, Msg string }
+		if err := dec.Decode(&line); err != nil {
+			t.Fatal(err)
+		}
+		if line.Level == "WARN" {
+			msgs = append(msgs, line.Msg)
+		}
+	}
+	return msgs
 }

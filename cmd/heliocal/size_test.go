@@ -2,7 +2,6 @@ package main
 
 import (
 	"context"
-	"encoding/json"
 	"log/slog"
 	"path/filepath"
 	"regexp"
@@ -71,20 +70,7 @@ func TestServeOversizeWarning(t *testing.T) {
 	}
 	var logged lockedBuffer
 	b := serveBuild(c, "", slog.New(slog.NewJSONHandler(&logged, nil)))
-	warned := func() []string {
-		var msgs []string
-		dec := json.NewDecoder(strings.NewReader(logged.String()))
-		for dec.More() {
-			var line struct{ Level, Msg string }
-			if err := dec.Decode(&line); err != nil {
-				t.Fatal(err)
-			}
-			if line.Level == "WARN" {
-				msgs = append(msgs, line.Msg)
-			}
-		}
-		return msgs
-	}
+	warned := func() []string { return warnings(t, &logged) }
 	for range 2 {
 		bundle, err := b(context.Background())
 		if err != nil {

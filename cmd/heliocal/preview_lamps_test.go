@@ -2,8 +2,6 @@ package main
 
 import (
 	"encoding/json"
-	"io"
-	"net/http"
 	"strconv"
 	"strings"
 	"testing"
@@ -22,18 +20,7 @@ import (
 // from 20 May the note needs the whole feed, and names a date in August.
 func TestPreviewLampsNoteAsFed(t *testing.T) {
 	ts := builderServer(t)
-	get := func(path string) string {
-		r, err := http.Get(ts.URL + path)
-		if err != nil {
-			t.Fatal(err)
-		}
-		defer r.Body.Close()
-		b, err := io.ReadAll(r.Body)
-		if err != nil || r.StatusCode != 200 {
-			t.Fatalf("%s: status %d, %v: %s", path, r.StatusCode, err, b)
-		}
-		return string(b)
-	}
+	get := func(path string) string { return getOK(t, ts.URL+path) }
 	for _, tc := range []struct{ place, start, month string }{
 		{"lat=48.2&lon=16.4&tz=Europe/Vienna", "2027-06-20", "Jul"},
 		{"lat=69.65&lon=18.96&tz=Europe/Oslo", "2027-05-20", "Aug"},

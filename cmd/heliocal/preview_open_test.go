@@ -16,18 +16,7 @@ import (
 // 00:00" for three days).
 func TestPreviewOpenSpan(t *testing.T) {
 	ts := builderServer(t)
-	get := func(path string) string {
-		r, err := http.Get(ts.URL + path)
-		if err != nil {
-			t.Fatal(err)
-		}
-		defer r.Body.Close()
-		b, err := io.ReadAll(r.Body)
-		if err != nil || r.StatusCode != 200 {
-			t.Fatalf("%s: status %d, %v: %s", path, r.StatusCode, err, b)
-		}
-		return string(b)
-	}
+	get := func(path string) string { return getOK(t, ts.URL+path) }
 	q := "lat=-77.8&lon=166.7&tz=Antarctica/McMurdo&kinds=sun-band:5..40&start=2026-11-09"
 	var res struct {
 		Days []struct {
@@ -55,4 +44,19 @@ func TestPreviewOpenSpan(t *testing.T) {
 	if page := get("/at?" + q + "&days=3"); !strings.Contains(page, "from 02:24") || strings.Contains(page, "02:24–") {
 		t.Errorf("the table page does not show the open span \"from 02:24\":\n%s", page)
 	}
+}
+
+// getOK returns the body of a GET of url, failing t unless it is 200 OK.
+func getOK(t *testing.T, url string) string {
+	t.Helper()
+	r, err := http.Get(url)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer r.Body.Close()
+	b, err := io.ReadAll(r.Body)
+	if err != nil || r.StatusCode != 200 {
+		t.Fatalf("%s: status %d, %v: %s", url, r.StatusCode, err, b)
+	}
+	return string(b)
 }

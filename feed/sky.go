@@ -1138,7 +1138,7 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 			up = th.xs[lo-1].Direction == astro.Rising
 		}
 		crossed := hi > lo
-		keep := -1 // with a skyline: only the date's first appearance, last disappearance
+		keep := -1 // with a skyline: the date's first appearance, last disappearance (and dayBound's)
 		if alt == skylineKey {
 			for j := lo; j < hi; j++ {
 				if th.xs[j].Direction == dir && (keep < 0 || dir == astro.Setting) {
@@ -1150,7 +1150,7 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 		for j := lo; j < hi; j++ {
 			x := &th.xs[j]
 			up = x.Direction == astro.Rising
-			if dir != 0 && x.Direction != dir || keep >= 0 && j != keep {
+			if dir != 0 && x.Direction != dir || keep >= 0 && j != keep && !dayBound(th, j, lo, hi, late, i) {
 				continue
 			}
 			listed = true
@@ -1201,6 +1201,33 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 		}
 	}
 	return nil
+}
+
+// dayBound says whether the crossing th.xs[j] of the date dates[i] (whose
+// crossings are th.xs[lo:hi]) begins or ends a day by the rule of the day
+// length (dayEnds, dropLongTails), as a sunrise or sunset over the flat
+// horizon does: a disappearance after midnight that ends the day of the
+// date before (late[i+1]) or ends the midnight Sun on a date with an
+// appearance after it, or an appearance that begins a day ending after
+// the next midnight (late[i+2]) or begins the midnight Sun on a date with
+// a disappearance before it. Over a skyline a date lists its first
+// appearance and last disappearance, not the Sun hidden behind a peak and
+// out again between them; these are listed too, so that a skyline at one
+// altitude all round lists what that horizon does (at 78.92° N on 28
+// August 2027 the sunset at 00:14 that ends the day of 27 August, and the
+// one at 23:50).
+func dayBound(th *threshold, j, lo, hi int, late []time.Time, i int) bool {
+	xs := th.xs
+	if xs[j].Direction == astro.Setting {
+		return xs[j].Time.Equal(late[i+1]) || endsLongDay(th, j, hi)
+	}
+	if j+1 < len(xs) && i+2 < len(late) && !late[i+2].IsZero() && xs[j+1].Time.Equal(late[i+2]) {
+		return true
+	}
+	// the midnight Sun begins: up for a day or more (or to the end of the
+	// crossings known), after a sunset of the date's own
+	return j > lo && xs[j-1].Direction == astro.Setting &&
+		(j+1 == len(xs) || xs[j+1].Time.UnixNano()-xs[j].Time.UnixNano() >= int64(24*time.Hour))
 }
 
 // twilightEvents is crossings for a threshold other than the horizon (the

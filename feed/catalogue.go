@@ -693,12 +693,9 @@ func summaries(col *collector, w *entryWriter, spec config.KindSpec) error {
 	byStart := func(evs []Event) {
 		sort.Slice(evs, func(a, b int) bool { return evs[a].Start.Before(evs[b].Start) })
 	}
-	var late []time.Time // flat horizon: the sunsets after midnight that end a day
-	if !col.p.direct() {
-		var err error
-		if late, err = sub.dayEnds(col.p.riseAlt()); err != nil {
-			return err
-		}
+	late, err := sub.dayEnds(col.p.riseAlt()) // the sunsets after midnight that end a day (over a skyline too, as dayLengths counts them)
+	if err != nil {
+		return err
 	}
 	lateDusks, err := sub.dayEnds(astro.CivilTwilight) // the civil dusks after midnight that end a date's twilight
 	if err != nil {

@@ -254,6 +254,46 @@ func TestSummaryMidnightSunBegins(t *testing.T) {
 	}
 }
 
+// Over a skyline the daily summary marks the sunset after midnight that
+// ends a day, and the sunrise that begins the midnight Sun, as over the
+// flat horizon, since its direct Sun is counted by the same rule: at
+// 78.2° N over a skyline at 0° all round (the flat horizon's crossings,
+// astro.TestSkylineFlatEqualsHorizon), 17 April 2027 lists its sunset at
+// 00:03 on the 18th instead of "No sunset today", 18 April says that sunset
+// ends the day before and that after its sunrise at 01:49 the Sun stays up
+// (PyEphem's instants, see pyephemRise16 and pyephemRise18).
+func TestSkylineSummaryMarksDayEnds(t *testing.T) {
+	s := site(t, "isfjell-hut", 78.2, 15.6, "Arctic/Longyearbyen")
+	s.Skyline = [][2]float64{{0, 0}}
+	sk := sky(t, "2027-04-16", "2027-04-18")
+	es, err := sk.Entries(context.Background(), s, "hut", []config.KindSpec{{Kind: mustKinds(t, "daily-summary")[0]}}, date("2027-04-16"), date("2027-04-18"))
+	if err != nil || len(es) != 3 {
+		t.Fatalf("entries %v, %v; want three summaries", es, err)
+	}
+	set, rise := cestMinute(pyephemSet17), cestMinute(pyephemRise18)
+	for i, c := range []struct{ want, not []string }{
+		{not: []string{"after midnight", "ending the day before", "stays up"}},
+		{want: []string{"Sunset " + set + " CEST (after midnight, Sun 18 April)\n"}, not: []string{"No sunset"}},
+		{want: []string{
+			"Sunset " + set + " CEST (ending the day before)\n",
+			"Sunrise " + rise + " CEST (the Sun then stays up for more than a day: midnight sun)\n",
+			", sunrise to midnight (",
+		}},
+	} {
+		d := es[i].Description
+		for _, w := range c.want {
+			if !strings.Contains(d, w) {
+				t.Errorf("summary of %s lacks %q:\n%s", es[i].Date.Format(time.DateOnly), w, d)
+			}
+		}
+		for _, n := range c.not {
+			if strings.Contains(d, n) {
+				t.Errorf("summary of %s says %q:\n%s", es[i].Date.Format(time.DateOnly), n, d)
+			}
+		}
+	}
+}
+
 // cestMinute is instant t in CEST (UTC+2) to the nearest minute, as "15:04".
 func cestMinute(t time.Time) string {
 	return t.In(time.FixedZone("CEST", 2*3600)).Round(time.Minute).Format("15:04")

@@ -1338,14 +1338,12 @@ func describeSummary(s *siteInfo, d time.Time, length, delta time.Duration, evs 
 	// date's day): the Sun stays up for more than a day, and the day
 	// length runs to midnight
 	upFrom := -1
-	if len(s.Skyline) == 0 {
-		for i, e := range evs {
-			switch e.Kind.Name {
-			case "sunrise":
-				upFrom = i
-			case "sunset":
-				upFrom = -1
-			}
+	for i, e := range evs {
+		switch e.Kind.Name {
+		case "sunrise":
+			upFrom = i
+		case "sunset":
+			upFrom = -1
 		}
 	}
 	staysUp := upFrom >= 0

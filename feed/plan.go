@@ -471,7 +471,8 @@ func (kt *kindTimes) evening() bool {
 
 // ofEvening returns the event of an evening kind on the local date d's
 // evening: the first after the date's solar noon, on d or past midnight,
-// before the next date's noon; false when that evening has none. Over a
+// before the next date's noon and its first rising; false when that
+// evening has none. Over a
 // flat horizon a setting that follows a rising of its date is after that
 // date's noon (the Sun culminates between them): noon is looked up only for
 // one that does not. A skyline's peaks may hide the Sun and show it again
@@ -500,18 +501,17 @@ func (kt *kindTimes) ofEvening(d time.Time) (time.Time, bool, error) {
 		// before noon: the evening before's, past midnight
 	}
 	// none on d: the next date's first, when it is before that date's noon
-	// (over a flat horizon, when no rising comes before it: the setting
-	// after one is that date's evening)
+	// and no rising comes before it (the Sun still up from d's evening at
+	// midnight): a setting after a rising is the next date's own, over a
+	// skyline too (the Sun out over the hills in the morning and behind a
+	// peak again before noon is not d's evening)
 	next := d.AddDate(0, 0, 1)
 	if dc, err = kt.day(next); err != nil {
 		return time.Time{}, false, err
 	}
 	for _, x := range dc.xs {
 		if x.Direction != kt.dir {
-			if flat {
-				break
-			}
-			continue
+			break
 		}
 		noon, err := kt.noon(next)
 		if err != nil || !x.Time.Before(noon) {
@@ -559,6 +559,13 @@ func (kt *kindTimes) note(d time.Time) (Note, bool) {
 	}
 	up := dc.up
 	if kt.evening() {
+		if kt.alt == skylineKey && len(dc.xs) > 0 {
+			// the Sun out over the skyline and behind it again before
+			// noon, or hidden by a peak in the morning only: it neither
+			// stays behind the skyline nor over it all day, and the date
+			// gets no reason
+			return Note{}, false
+		}
 		// no event that evening: the Sun stays on the side of the altitude
 		// it is on at the date's noon, from the last crossing before it
 		noon, err := kt.noon(d)
@@ -586,6 +593,12 @@ func (kt *kindTimes) note(d time.Time) (Note, bool) {
 				n.SunUp = false // the reason stays the twilight's
 			}
 		}
+	} else if kt.family == "sun-horizon" && (kt.alt == skylineKey || kt.c.p.Observer.Horizon > 0) {
+		// the Sun up over the flat horizon at noon but behind the hills
+		// all day, not the polar night: as the sunrise and sunset kinds'
+		// notes (collector.crossings)
+		tr, ok, err := kt.c.noonOf(d)
+		n.Hidden = err == nil && ok && kt.c.upAtNoon(tr)
 	}
 	return n, true
 }

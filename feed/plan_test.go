@@ -650,6 +650,63 @@ func TestPlanEveningStartSkyline(t *testing.T) {
 	}
 }
 
+// TestPlanEveningStartSkylineMorningOnly: over a skyline that hides the
+// Sun from late morning on, a date has no evening sunset, and a plan at
+// sunset gets the date's note, not the next date's disappearance in the
+// morning, which follows that date's own appearance over the hills. The
+// valley is invented: open from 100° to 150° of azimuth, a 45° wall
+// elsewhere; at 47.05° N in late December the Sun rises at about 127°
+// and culminates at about 19.5° (δ = −23.4°, the obliquity, IAU value),
+// so it goes behind the wall at 150° before noon and stays there.
+func TestPlanEveningStartSkylineMorningOnly(t *testing.T) {
+	s := site(t, "gorge", 47.05, 11.2, "Europe/Vienna")
+	s.Skyline = [][2]float64{{0, 45}, {95, 45}, {100, 0}, {150, 0}, {155, 45}}
+	sk := sky(t, "2027-12-14", "2027-12-28")
+	ev, _, err := sk.Events(context.Background(), PlaceOf(s), mustKinds(t, "sunrise", "sunset", "solar-noon"), date("2027-12-20"), date("2027-12-22"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	noons := map[string]time.Time{}
+	for _, e := range ev {
+		if e.Kind.Name == "solar-noon" {
+			noons[e.Date.Format(time.DateOnly)] = e.Start
+		}
+	}
+	sets := 0
+	for _, e := range ev {
+		if e.Kind.Name == "sunset" {
+			sets++
+			if noon := noons[e.Date.Format(time.DateOnly)]; noon.IsZero() || !e.Start.Before(noon) {
+				t.Fatalf("sunset %s on %s, solar noon %s: want it before noon", e.Start, e.Date.Format(time.DateOnly), noon)
+			}
+		}
+	}
+	if sets != 3 {
+		t.Fatalf("%d sunsets over 20–22 December, want one each morning: %+v", sets, ev)
+	}
+	es := planEntries(t, s, "2027-12-20", "2027-12-22", config.Plan{Title: "Gorge dusk", Date: "every day", Start: "sunset"})
+	if len(es) != 3 {
+		t.Fatalf("%d entries, want one a date: %+v", len(es), es)
+	}
+	for _, e := range es {
+		if !e.AllDay || !strings.Contains(e.Title, "no sunset today") {
+			t.Errorf("%s: %q from %s, want the note of an evening without a sunset", e.Date.Format(time.DateOnly), e.Title, e.Start)
+		}
+		// the Sun rose over the gap: neither polar night nor a day
+		// behind the skyline
+		if strings.Contains(e.Description, "polar night") || strings.Contains(e.Description, "behind the skyline") {
+			t.Errorf("%s: the reason does not fit the date: %s", e.Date.Format(time.DateOnly), e.Description)
+		}
+	}
+	// a wall at 45° all round: the Sun, up over the flat horizon (19.5° at
+	// noon), stays behind it, as the sunset kind's note says
+	s.Skyline = [][2]float64{{0, 45}}
+	es = planEntries(t, s, "2027-12-21", "2027-12-21", config.Plan{Title: "Gorge dusk", Date: "every day", Start: "sunset"})
+	if len(es) != 1 || !strings.Contains(es[0].Description, "(no direct Sun today: the Sun stays behind the skyline)") {
+		t.Errorf("%+v, want the note of the Sun behind the skyline all day, not of the polar night", es)
+	}
+}
+
 // TestPlanEndClockPassed: an end clock time before the start is on the next
 // day only when it is before 12:00; one at or after 12:00 that the start
 // has passed leaves the date no time, and its note says so. At 56.5° N the

@@ -48,7 +48,7 @@ func tileAt(lon, lat float64, z uint32) zoneTile {
 	return zoneTile{x: uint32(px), y: uint32(py), z: z}
 }
 
-// zoneTiles is the map of tiles that lie wholly within one zone, from zoom
+// zoneTileMap is the map of tiles that lie wholly within one zone, from zoom
 // aggZoom (large tiles) to idxZoom (small ones).
 type zoneTileMap struct {
 	aggZoom, idxZoom uint32

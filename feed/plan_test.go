@@ -705,6 +705,15 @@ func TestPlanEveningStartSkylineMorningOnly(t *testing.T) {
 	if len(es) != 1 || !strings.Contains(es[0].Description, "(no direct Sun today: the Sun stays behind the skyline)") {
 		t.Errorf("%+v, want the note of the Sun behind the skyline all day, not of the polar night", es)
 	}
+	// likewise a raised horizon: at 65° N on the December solstice the noon
+	// Sun is at 90° − 65° − 23.44° = 1.56° (the obliquity, IAU value), over
+	// the flat horizon, under a horizon of 5°
+	h := site(t, "fell", 65, 25, "Europe/Helsinki")
+	h.Horizon = 5
+	es = planEntries(t, h, "2027-12-21", "2027-12-21", config.Plan{Title: "Fell dusk", Date: "every day", Start: "sunset"})
+	if len(es) != 1 || !strings.Contains(es[0].Description, "(no direct Sun today: the Sun stays behind the skyline)") {
+		t.Errorf("%+v, want the note of the Sun behind the raised horizon all day, not of the polar night", es)
+	}
 }
 
 // TestPlanEndClockPassed: an end clock time before the start is on the next

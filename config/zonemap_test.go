@@ -2,6 +2,7 @@ package config
 
 import (
 	"errors"
+	"slices"
 	"testing"
 
 	"github.com/ringsaturn/tzf"
@@ -130,5 +131,47 @@ func TestZoneMapRefusesMalformed(t *testing.T) {
 	}
 	if _, _, err := decodeZonePolygons([]byte{0x08, 0x02}); err == nil {
 		t.Error("compression method 2 accepted")
+	}
+}
+
+// The polygon lookup answers as tzf's own finder over the same file, on a
+// 1° grid over land and sea: the name, or none, at each point, and
+// all the names at points that several polygons hold.
+func TestZonePolygonsAnswerAsTzf(t *testing.T) {
+	if testing.Short() {
+		t.Skip("builds both polygon indexes (about a second)")
+	}
+	cin := &pb.CompressedTimezones{}
+	if err := proto.Unmarshal(tzfrellite.LiteCompressData, cin); err != nil {
+		t.Fatal(err)
+	}
+	finder, err := tzf.NewFinderFromCompressed(cin)
+	if err != nil {
+		t.Fatal(err)
+	}
+	names, shapes, err := decodeZonePolygons(tzfrellite.LiteCompressData)
+	if err != nil {
+		t.Fatal(err)
+	}
+	mine := newZonePolygons(names, shapes)
+	answered := 0
+	for lat := -89.5; lat < 90; lat++ {
+		for lon := -179.5; lon < 180; lon++ {
+			got, exp := mine.name(lon, lat), finder.GetTimezoneName(lon, lat)
+			if got != exp {
+				t.Fatalf("%v, %v: %q, tzf %q", lat, lon, got, exp)
+			}
+			if got == "" {
+				continue
+			}
+			answered++
+			all, _ := finder.GetTimezoneNames(lon, lat)
+			if gotAll := mine.names(lon, lat); !slices.Equal(gotAll, all) {
+				t.Fatalf("%v, %v: %q, tzf %q", lat, lon, gotAll, all)
+			}
+		}
+	}
+	if answered < 60000 { // the files give the seas their Etc/GMT zones: nearly every point has one
+		t.Errorf("only %d points of the grid in a zone", answered)
 	}
 }

@@ -638,3 +638,24 @@ func TestDirectSunEndOfMidnightSun(t *testing.T) {
 		})
 	}
 }
+
+// Over a skyline the twilights are counted from the flat horizon: on a date
+// the Sun stays above it but sets behind northern hills, the summary lists
+// the sunset behind the skyline and says the Sun stays above the flat
+// horizon, not "the Sun does not set". At 78.2° N, 15.6° E the Sun is at
+// its lowest near 23:00 UTC on 10 May 2027, 5.96° up at azimuth 1.4°
+// (PyEphem 4.1, geometric: 5°57'31"), under hills of 8° in the north and
+// over the flat horizon.
+func TestSkylineSummaryTwilightNote(t *testing.T) {
+	s := site(t, "isfjell-hut", 78.2, 15.6, "Arctic/Longyearbyen")
+	s.Skyline = [][2]float64{{0, 8}, {90, 2}, {180, 1}, {270, 2}}
+	sk := sky(t, "2027-05-10", "2027-05-10")
+	es, err := sk.Entries(context.Background(), s, "hut", []config.KindSpec{{Kind: mustKinds(t, "daily-summary")[0]}}, date("2027-05-10"), date("2027-05-10"))
+	if err != nil || len(es) != 1 {
+		t.Fatalf("entries %v, %v; want one summary", es, err)
+	}
+	d := es[0].Description
+	if !strings.Contains(d, "Sunset ") || strings.Contains(d, "does not set") || !strings.Contains(d, "No civil dusk or dawn today: the Sun stays above the flat horizon.") {
+		t.Errorf("summary over the skyline:\n%s", d)
+	}
+}

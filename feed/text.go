@@ -1196,6 +1196,11 @@ func describeNote(s *siteInfo, n Note) (string, string) {
 	case "civil", "nautical", "astronomical":
 		deg := map[string]string{"civil": "6°", "nautical": "12°", "astronomical": "18°"}[n.Family]
 		switch {
+		case above && n.SunUp && len(s.Skyline) > 0:
+			// the twilights are counted from the flat horizon, and the Sun
+			// may set behind the skyline that day: not "does not set"
+			title = fmt.Sprintf("No %s dusk or dawn today: the Sun stays above the flat horizon", n.Family)
+			desc = "The Sun stays above the flat horizon all day and night (the twilights are counted from it, not from the site's skyline)"
 		case above && n.SunUp:
 			title = fmt.Sprintf("No %s dusk or dawn today: the Sun does not set", n.Family)
 			desc = "The Sun stays above the horizon all day and night"

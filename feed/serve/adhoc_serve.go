@@ -143,7 +143,7 @@ func (s *Server) buildAdhoc(ctx context.Context, q AdhocQuery, warm bool) (a *as
 		return nil, err
 	}
 	if sink.n > s.opts.AdhocMaxBytes {
-		qe := tooLarge(q, sink.n, s.opts.AdhocMaxBytes)
+		qe := tooLarge(q, sink.n, s.opts.AdhocMaxBytes, s.suggestDays(ctx, q, sink.n))
 		s.refused.put(q.String(), &asset{data: []byte(qe.Error())})
 		return nil, qe
 	}
@@ -357,10 +357,23 @@ func (g *flightGroup) do(ctx context.Context, key string, fn func(context.Contex
 	}
 }
 
+// suggestDays is the window the refusal of q's feed, of size bytes,
+// suggests: the subscribe link's rule (fitDays) when there is a preview to
+// compute it with, otherwise q's days scaled to 90 % of the limit (the size
+// is nearly proportional to the days). It is called with q's ad-hoc slot
+// held.
+func (s *Server) suggestDays(ctx context.Context, q AdhocQuery, size int) int {
+	if s.opts.Preview != nil && q.Days > 1 {
+		if days, err := s.fitDays(ctx, q, q.Days-1); err == nil {
+			return days
+		}
+	}
+	return max(1, q.Days*s.opts.AdhocMaxBytes/size*9/10)
+}
+
 // tooLarge is the refusal of an ad-hoc feed of size bytes, over limit: it
-// states the limit and how to stay under it.
-func tooLarge(q AdhocQuery, size, limit int) *QueryError {
-	days := max(1, q.Days*limit/size*9/10) // the size is nearly proportional to the days
+// states the limit and how to stay under it (days).
+func tooLarge(q AdhocQuery, size, limit, days int) *QueryError {
 	got, most := publish.FormatBytesOver(int64(size), int64(limit))
 	return &QueryError{Msg: fmt.Sprintf("the feed asked for is %s, over the %s limit per ad-hoc feed "+
 		"(some calendar apps drop larger subscriptions); ask for fewer kinds or days (%s=%d should fit with these kinds)",

@@ -22,6 +22,7 @@ import (
 
 	"heliocal/config"
 	"heliocal/feed"
+	"heliocal/feed/ical"
 	"heliocal/feed/publish"
 )
 
@@ -230,33 +231,121 @@ type previewResult struct {
 }
 
 // subscribeDays is the window of q's subscription: the default ad-hoc
-// window, or fewer days when that feed would be over the size limit
-// (estimated from four weeks of the same feed: its size is nearly
-// proportional to the days, and the fixed part makes the estimate err on
-// the small side).
+// window, or fewer days when that feed would be over the size limit on
+// some day of the year it may be fetched on (see fitDays).
 func (s *Server) subscribeDays(ctx context.Context, q AdhocQuery) (int, error) {
-	const sample = 28
-	q.Days = sample
-	select {
-	case s.adhocSem <- struct{}{}:
-	case <-ctx.Done():
-		return 0, errAdhocBusy
-	}
-	defer func() { <-s.adhocSem }()
-	var size byteCount
-	if err := s.opts.Adhoc(ctx, q, &size); err != nil {
+	ctx, release, err := s.adhocSlot(ctx)
+	if err != nil {
 		return 0, err
 	}
-	fit := s.opts.AdhocMaxBytes * 9 / 10 * sample / max(int(size), 1)
-	return max(1, min(s.opts.AdhocDefaultDays, fit)), nil
+	defer release()
+	return s.fitDays(ctx, q, s.opts.AdhocDefaultDays)
 }
 
-// byteCount is a writer that counts the bytes written to it.
-type byteCount int
+// fitDays is the longest rolling window, of at most most days, whose feed
+// for q stays within 90 % of the size limit whatever day it starts on: it
+// computes a year of q's entries from q.Start (or AdhocDefaultDays, when
+// longer), takes the bytes each date's events take in the feed, and keeps
+// the largest number of days whose every window over that year, taken
+// cyclically, fits with the file's fixed part (header, time zone). Near a
+// pole a summer date carries more events than a winter one: a window sized
+// from the weeks after the request would be refused when the rolling
+// subscription reaches summer. It is called with an ad-hoc slot held, and
+// only when Options.Preview is set.
+func (s *Server) fitDays(ctx context.Context, q AdhocQuery, most int) (int, error) {
+	year := max(daysPerYear, s.opts.AdhocDefaultDays)
+	q.Days = year
+	cal, err := s.opts.Preview(ctx, q)
+	if err != nil {
+		return 0, err
+	}
+	defer cal.Release()
+	buf := sizingBufs.Get().(*[]byte)
+	defer sizingBufs.Put(buf)
+	*buf, err = ical.NewEncoder(ical.Options{Version: s.opts.Version}).Append((*buf)[:0], cal)
+	if err != nil {
+		return 0, err
+	}
+	perDate, events := dateBytes(*buf, cal, q, year)
+	// the fixed part, with room for a longer version in PRODID than the
+	// one this server knows
+	fixed := len(*buf) - events + prodIDSlack
+	budget := s.opts.AdhocMaxBytes*9/10 - fixed
+	sums := make([]int, 2*year+1) // sums[i]: the bytes of dates 0..i-1, the year repeated
+	for i := range 2 * year {
+		sums[i+1] = sums[i] + perDate[i%year]
+	}
+	fits := func(n int) bool {
+		for i := range year {
+			if sums[i+n]-sums[i] > budget {
+				return false
+			}
+		}
+		return true
+	}
+	lo, hi := 1, min(most, year) // the answer is at least lo
+	if fits(hi) {
+		return hi, nil
+	}
+	for lo+1 < hi { // fits(lo) or lo == 1; !fits(hi)
+		mid := (lo + hi) / 2
+		if fits(mid) {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	return lo, nil
+}
 
-func (c *byteCount) Write(p []byte) (int, error) {
-	*c += byteCount(len(p))
-	return len(p), nil
+// daysPerYear is the length of the year fitDays looks over.
+const daysPerYear = 365
+
+// prodIDSlack is what fitDays allows for the PRODID of the feed served,
+// whose version may be longer than Options.Version.
+const prodIDSlack = 64
+
+// sizingBufs hold fitDays' encoded year (about a megabyte) between requests.
+var sizingBufs = sync.Pool{New: func() any { return new([]byte) }}
+
+// dateBytes splits the events of data, cal encoded, by their local date:
+// perDate[i] is the bytes of the events of the date i days after q.Start,
+// events their total. Each entry is one VEVENT, in cal's order.
+func dateBytes(data []byte, cal *feed.Calendar, q AdhocQuery, year int) (perDate []int, events int) {
+	const begin, end = "BEGIN:VEVENT\r\n", "END:VEVENT\r\n"
+	perDate = make([]int, year)
+	first := time.Date(q.Start.Year(), q.Start.Month(), q.Start.Day(), 0, 0, 0, 0, time.UTC)
+	pos := bytes.Index(data, []byte(begin))
+	last := bytes.LastIndex(data, []byte(end))
+	if pos < 0 || last < pos {
+		return perDate, 0
+	}
+	stop := last + len(end)
+	events = stop - pos
+	n := bytes.Count(data[pos:stop], []byte(begin))
+	if n != len(cal.Entries) {
+		// not one VEVENT per entry: share the events' bytes evenly
+		for i := range perDate {
+			perDate[i] = events/year + 1
+		}
+		return perDate, events
+	}
+	for i := range cal.Entries {
+		next := stop
+		if i+1 < n {
+			next = pos + len(begin) + bytes.Index(data[pos+len(begin):], []byte(begin))
+		}
+		e := &cal.Entries[i]
+		date := e.Date
+		if date.IsZero() {
+			date = e.Start.In(q.Location)
+		}
+		d := time.Date(date.Year(), date.Month(), date.Day(), 0, 0, 0, 0, time.UTC)
+		day := min(max(int(d.Sub(first).Hours()/24), 0), year-1)
+		perDate[day] += next - pos
+		pos = next
+	}
+	return perDate, events
 }
 
 // links are the subscribe links of q (a rolling window from the day of

@@ -14,13 +14,13 @@ import (
 )
 
 // previewCalendar is a Preview that lists one entry per kind per date at
-// 06:00 UTC: the serve package's own tests need no astronomy.
+// 06:29:30 UTC: the serve package's own tests need no astronomy.
 func previewCalendar(_ context.Context, q AdhocQuery) (*feed.Calendar, error) {
-	cal := &feed.Calendar{Title: "Sky events at " + q.Name, Site: feed.Site{Name: q.Name, Location: q.Location}}
+	cal := &feed.Calendar{Title: "Sky events at " + q.Name, Site: feed.Site{Name: q.Name, Location: q.Location}, Stamp: q.Start}
 	for i := range q.Days {
 		d := q.Start.AddDate(0, 0, i)
 		for _, k := range q.Kinds {
-			cal.Entries = append(cal.Entries, feed.Entry{Kind: k, Title: k, Date: d,
+			cal.Entries = append(cal.Entries, feed.Entry{Kind: k, Title: k, Date: d, UID: k + "-" + d.Format("20060102") + "@heliocal",
 				Start: d.Add(6*time.Hour + 29*time.Minute + 30*time.Second)})
 		}
 	}

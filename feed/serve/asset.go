@@ -51,16 +51,24 @@ const minGzip = 512
 
 func hdr(v string) []string { return []string{v} } // len 1, cap 1
 
-// newAsset hashes and compresses data. If prev holds the same bytes its gzip
-// form is reused.
+// newAsset hashes and compresses data, modified at mod. If prev holds the
+// same bytes its gzip form and its modification time are reused: the
+// Last-Modified of a file is when it was first served with these bytes.
+// Bytes that differ from prev's are modified after prev, by a second at
+// least (the resolution of an HTTP date), so that a client sending prev's
+// date in If-Modified-Since gets them.
 func newAsset(name, contentType string, data []byte, mod time.Time, prev *asset) *asset {
 	sum := sha256.Sum256(data)
 	hexSum := hex.EncodeToString(sum[:])
 	var gz []byte
-	if prev != nil && prev.sum == hexSum {
-		gz = prev.gz
-	} else if len(data) >= minGzip {
+	switch {
+	case prev != nil && prev.sum == hexSum:
+		gz, mod = prev.gz, prev.modTime
+	case len(data) >= minGzip:
 		gz = gzipBytes(data)
+	}
+	if prev != nil && prev.sum != hexSum && !mod.IsZero() && !mod.After(prev.modTime) {
+		mod = prev.modTime.Add(time.Second)
 	}
 	return assetOf(name, contentType, data, mod, hexSum, gz)
 }
@@ -253,6 +261,11 @@ func prepare(b *publish.Bundle, prev *snapshot, now time.Time) (*snapshot, error
 		built = now
 	}
 	s := &snapshot{built: built, files: make(map[string]*asset, len(b.Files)+1), feeds: len(b.Feeds)}
+	// Last-Modified: now for bytes this process has not served before, not
+	// the file's own ModTime (a feed's DTSTAMP, the start of its window,
+	// the same after a reload that changes the feed: a client sending it
+	// in If-Modified-Since would keep the old feed).
+	mod := now.UTC().Truncate(time.Second)
 	for _, f := range b.Feeds {
 		s.events += f.Events
 	}
@@ -280,10 +293,6 @@ func prepare(b *publish.Bundle, prev *snapshot, now time.Time) (*snapshot, error
 				var p *asset
 				if prev != nil {
 					p = prev.files[f.Name]
-				}
-				mod := f.ModTime
-				if mod.IsZero() {
-					mod = built
 				}
 				a := newAsset(f.Name, f.ContentType, f.Data, mod, p)
 				if f.Checksum != "" && !strings.EqualFold(f.Checksum, a.sum) {
@@ -318,7 +327,7 @@ func prepare(b *publish.Bundle, prev *snapshot, now time.Time) (*snapshot, error
 		if prev != nil {
 			p = prev.files["feeds.json"]
 		}
-		s.files["feeds.json"] = newAsset("feeds.json", "", append(data, '\n'), built, p)
+		s.files["feeds.json"] = newAsset("feeds.json", "", append(data, '\n'), mod, p)
 	}
 	return s, nil
 }

@@ -24,6 +24,7 @@ import (
 )
 
 func TestRoutes(t *testing.T) {
+	built := time.Now().Truncate(time.Second)
 	s, _ := newTestServer(t, Options{Adhoc: adhocICS, BaseURL: "https://sky.example.org/"}) // feeds.json as built
 	b := testBundle("a")
 	h := s.Handler()
@@ -53,8 +54,9 @@ func TestRoutes(t *testing.T) {
 			if got := r.Header.Get("ETag"); got != `"`+b.File(tc.file).Checksum+`"` {
 				t.Errorf("ETag %q, want the quoted checksum", got)
 			}
-			if got := r.Header.Get("Last-Modified"); got != testBuilt.Format(http.TimeFormat) {
-				t.Errorf("Last-Modified %q", got)
+			// when the server first served these bytes: its first build
+			if got, err := http.ParseTime(r.Header.Get("Last-Modified")); err != nil || got.Before(built) || got.After(time.Now()) {
+				t.Errorf("Last-Modified %q (%v), want the time of the first build, after %s", r.Header.Get("Last-Modified"), err, built)
 			}
 			if got := r.Header.Get("Cache-Control"); got != "public, max-age=86400" {
 				t.Errorf("Cache-Control %q, want the nightly refresh interval", got)
@@ -116,11 +118,15 @@ func TestConditionalGET(t *testing.T) {
 		t.Errorf("If-None-Match list containing the ETag: status %d, want 304", r.StatusCode)
 	}
 
-	since := testBuilt.Add(time.Hour).Format(http.TimeFormat)
+	mod, err := http.ParseTime(first.Header.Get("Last-Modified"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	since := mod.Add(time.Hour).Format(http.TimeFormat)
 	if r := get(t, h, "GET", "/feeds/meadowbrook-sun.ics", "If-Modified-Since", since); r.StatusCode != 304 {
 		t.Errorf("If-Modified-Since after Last-Modified: status %d, want 304", r.StatusCode)
 	}
-	before := testBuilt.Add(-time.Hour).Format(http.TimeFormat)
+	before := mod.Add(-time.Hour).Format(http.TimeFormat)
 	if r := get(t, h, "GET", "/feeds/meadowbrook-sun.ics", "If-Modified-Since", before); r.StatusCode != 200 {
 		t.Errorf("If-Modified-Since before Last-Modified: status %d, want 200", r.StatusCode)
 	}
@@ -572,5 +578,57 @@ func TestWholeResponse(t *testing.T) {
 				t.Errorf("%s gzip=%v: body of %d bytes, want %d", method, gz, len(b), len(want))
 			}
 		}
+	}
+}
+
+// Last-Modified is when this server first served a file's bytes, not the
+// file's ModTime (a feed's DTSTAMP, which a reload changing the feed may
+// leave as it was): a client revalidating with the date it holds gets the
+// new bytes after a change (RFC 9110 §13.1.3: 304 only when not modified
+// since), and 304 while they stay the same.
+func TestLastModifiedFollowsBytes(t *testing.T) {
+	s, _ := newTestServer(t, Options{})
+	h := s.Handler()
+	const feedPath = "/feeds/meadowbrook-sun.ics"
+	first := get(t, h, "GET", feedPath)
+	lm, etag := first.Header.Get("Last-Modified"), first.Header.Get("ETag")
+	listing := get(t, h, "GET", "/feeds.json").Header.Get("Last-Modified")
+
+	// a rebuild giving the same bytes
+	if err := s.Reload(t.Context(), func(context.Context) (*publish.Bundle, error) { return testBundle("a"), nil }); err != nil {
+		t.Fatal(err)
+	}
+	if r := get(t, h, "GET", feedPath); r.Header.Get("Last-Modified") != lm || r.Header.Get("ETag") != etag {
+		t.Errorf("unchanged rebuild: Last-Modified %q, ETag %q; want %q, %q as before", r.Header.Get("Last-Modified"), r.Header.Get("ETag"), lm, etag)
+	}
+	if r := get(t, h, "GET", feedPath, "If-Modified-Since", lm); r.StatusCode != http.StatusNotModified {
+		t.Errorf("unchanged rebuild, If-Modified-Since %q: status %d, want 304", lm, r.StatusCode)
+	}
+
+	// a reload changing the feed, whose files carry the same ModTime
+	changed := testBundle("b")
+	if changed.File("meadowbrook-sun.ics").ModTime != testBundle("a").File("meadowbrook-sun.ics").ModTime {
+		t.Fatal("the two bundles' feeds should carry the same ModTime")
+	}
+	if err := s.Reload(t.Context(), func(context.Context) (*publish.Bundle, error) { return changed, nil }); err != nil {
+		t.Fatal(err)
+	}
+	r := get(t, h, "GET", feedPath)
+	newLM, _ := http.ParseTime(r.Header.Get("Last-Modified"))
+	oldLM, _ := http.ParseTime(lm)
+	if r.Header.Get("ETag") == etag || !newLM.After(oldLM) {
+		t.Errorf("changed feed: ETag %q (before %q), Last-Modified %q; want a new ETag and a date after %q",
+			r.Header.Get("ETag"), etag, r.Header.Get("Last-Modified"), lm)
+	}
+	r = get(t, h, "GET", feedPath, "If-Modified-Since", lm)
+	if got := body(t, r); r.StatusCode != http.StatusOK || got != string(changed.File("meadowbrook-sun.ics").Data) {
+		t.Errorf("changed feed, If-Modified-Since the old %q: status %d, want 200 with the new feed", lm, r.StatusCode)
+	}
+	if r := get(t, h, "GET", feedPath, "If-Modified-Since", r.Header.Get("Last-Modified")); r.StatusCode != http.StatusNotModified {
+		t.Errorf("changed feed, If-Modified-Since its own date: status %d, want 304", r.StatusCode)
+	}
+	// feeds.json, the same bytes in both bundles, keeps its date
+	if got := get(t, h, "GET", "/feeds.json").Header.Get("Last-Modified"); got != listing {
+		t.Errorf("feeds.json unchanged: Last-Modified %q, want %q as before", got, listing)
 	}
 }

@@ -127,7 +127,7 @@ func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, 
 		Relative: base == nil,
 	}
 	if v.Title == "" {
-		v.Title = "Sky calendars"
+		v.Title = DefaultPageTitle
 	}
 	if !l.generated.IsZero() {
 		v.Generated = l.generated.Format("2 January 2006")

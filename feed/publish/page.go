@@ -16,6 +16,10 @@ type PageText struct {
 	Descriptions map[string]string
 }
 
+// DefaultPageTitle heads the index that publish writes and the page that
+// serve answers at / when the configuration's page.title is empty.
+const DefaultPageTitle = "Sun and Moon calendars"
+
 // The cautions of the public pages: one for everyone, one where times may
 // be used under rules.
 const (

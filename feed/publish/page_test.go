@@ -34,3 +34,14 @@ func TestIndexPageSection(t *testing.T) {
 		t.Errorf("a page caution without legal kinds: the index should carry it alone")
 	}
 }
+
+// Without a page title the index carries the default of page.title given in
+// docs/configuration.md, "Sun and Moon calendars" (the heading of the page
+// serve answers at / too).
+func TestIndexDefaultTitle(t *testing.T) {
+	opts := testOptions()
+	opts.Title = ""
+	if html := string(renderIndexFor(t, opts, testCalendars(t, ""))); !strings.Contains(html, "<h1>Sun and Moon calendars</h1>") {
+		t.Errorf("the index's heading is not the default of page.title")
+	}
+}

@@ -73,7 +73,7 @@ type RenderOptions struct {
 	// URLs and the index offers https:// and webcal:// links; without it the
 	// index links are relative and there is no webcal:// link (it needs a host).
 	BaseURL string
-	// Title heads the index page; empty means "Sky calendars".
+	// Title heads the index page; empty means DefaultPageTitle.
 	Title string
 	// Page, when set, gives the index the configuration's page texts and
 	// order; nil keeps the built-in caution and the sites by name.

@@ -33,7 +33,7 @@ type PreviewFunc func(ctx context.Context, q AdhocQuery) (*feed.Calendar, error)
 
 // PageInfo is what the served page says beside the builder and the feeds.
 type PageInfo struct {
-	Title   string // the page's heading; default "Sun and Moon calendars"
+	Title   string // the page's heading; default publish.DefaultPageTitle
 	Intro   string // a short introduction under the heading
 	Contact string // a contact line at the foot
 	Caution string // the caution for the public; default DefaultCaution
@@ -82,7 +82,7 @@ func LegalKind(kind string) bool {
 // SetPage changes what the served page says, as after a reload.
 func (s *Server) SetPage(p PageInfo) {
 	if p.Title == "" {
-		p.Title = "Sun and Moon calendars"
+		p.Title = publish.DefaultPageTitle
 	}
 	if p.Caution == "" {
 		p.Caution = DefaultCaution

@@ -218,3 +218,13 @@ func TestPreviewAllDayOrder(t *testing.T) {
 		t.Errorf("order %v, want %s", kinds, want)
 	}
 }
+
+// Without a page title the served page carries the default of page.title
+// given in docs/configuration.md, the heading of the published index.html
+// too.
+func TestPageDefaultTitle(t *testing.T) {
+	s := builderTestServer(t)
+	if html := body(t, get(t, s.Handler(), "GET", "/")); !strings.Contains(html, "<h1>Sun and Moon calendars</h1>") {
+		t.Errorf("the page's heading is not the default of page.title")
+	}
+}

@@ -1,6 +1,7 @@
 package publish
 
 import (
+	"strconv"
 	"strings"
 	"testing"
 )
@@ -37,11 +38,22 @@ func TestIndexPageSection(t *testing.T) {
 
 // Without a page title the index carries the default of page.title given in
 // docs/configuration.md, "Sun and Moon calendars" (the heading of the page
-// serve answers at / too).
-func TestIndexDefaultTitle(t *testing.T) {
+// serve answers at / too), and counts its feeds in words that agree with
+// the number: "1 calendar feed", "3 calendar feeds".
+func TestIndexDefaultTitleAndCount(t *testing.T) {
+	cals := testCalendars(t, "")
 	opts := testOptions()
 	opts.Title = ""
-	if html := string(renderIndexFor(t, opts, testCalendars(t, ""))); !strings.Contains(html, "<h1>Sun and Moon calendars</h1>") {
-		t.Errorf("the index's heading is not the default of page.title")
+	for _, tc := range []struct {
+		n    int
+		want string
+	}{{1, "<p>1 calendar feed, "}, {3, "<p>3 calendar feeds, "}} {
+		html := string(renderIndexFor(t, opts, cals[:tc.n]))
+		if !strings.Contains(html, "<h1>Sun and Moon calendars</h1>") {
+			t.Errorf("%d feeds: the index's heading is not the default of page.title", tc.n)
+		}
+		if i := strings.Index(html, "<p>"+strconv.Itoa(tc.n)+" calendar feed"); i < 0 || !strings.HasPrefix(html[i:], tc.want) {
+			t.Errorf("%d feeds: the index does not say %q", tc.n, tc.want)
+		}
 	}
 }

@@ -77,6 +77,17 @@ func TestRefusalSuggestsLinkDays(t *testing.T) {
 	}
 }
 
+// A preview of the last week of the dates served (the supported range ends
+// on 2200-12-31: DefaultAdhocMaxYear, the ephemeris's own range) sizes its
+// subscribe link from the year before that end: the year from its start
+// would run past it, and the preview was refused.
+func TestPreviewAtEndOfRange(t *testing.T) {
+	ts := builderServer(t)
+	if days := subscribeDays(t, ts.URL+"/at.json?lat=1&lon=2&start=2200-12-25"); days != 365 {
+		t.Errorf("subscribe_days %d, want 365 (the default kinds fit a year)", days)
+	}
+}
+
 // subscribeDays is the subscribe_days of the preview at url.
 func subscribeDays(t *testing.T, url string) int {
 	t.Helper()

@@ -255,21 +255,28 @@ func (s *Server) subscribeDays(ctx context.Context, q AdhocQuery) (int, error) {
 func (s *Server) fitDays(ctx context.Context, q AdhocQuery, most int) (int, error) {
 	year := max(daysPerYear, s.opts.AdhocDefaultDays)
 	q.Days = year
+	// near the end of the dates served, the year before it stands in
+	if end := time.Date(s.limits.maxYear, 12, 31, 0, 0, 0, 0, q.Start.Location()); q.Start.AddDate(0, 0, year-1).After(end) {
+		q.Start = end.AddDate(0, 0, 1-year)
+	}
 	cal, err := s.opts.Preview(ctx, q)
 	if err != nil {
 		return 0, err
 	}
 	defer cal.Release()
-	buf := sizingBufs.Get().(*[]byte)
-	defer sizingBufs.Put(buf)
-	*buf, err = ical.NewEncoder(ical.Options{Version: s.opts.Version}).Append((*buf)[:0], cal)
+	sz := sizers.Get().(*sizer)
+	defer sizers.Put(sz)
+	if sz.enc == nil || sz.version != s.opts.Version {
+		sz.enc, sz.version = ical.NewEncoder(ical.Options{Version: s.opts.Version}), s.opts.Version
+	}
+	sz.buf, err = sz.enc.Append(sz.buf[:0], cal)
 	if err != nil {
 		return 0, err
 	}
-	perDate, events := dateBytes(*buf, cal, q, year)
+	perDate, events := dateBytes(sz.buf, cal, q, year)
 	// the fixed part, with room for a longer version in PRODID than the
 	// one this server knows
-	fixed := len(*buf) - events + prodIDSlack
+	fixed := len(sz.buf) - events + prodIDSlack
 	budget := s.opts.AdhocMaxBytes*9/10 - fixed
 	sums := make([]int, 2*year+1) // sums[i]: the bytes of dates 0..i-1, the year repeated
 	for i := range 2 * year {
@@ -305,8 +312,16 @@ const daysPerYear = 365
 // whose version may be longer than Options.Version.
 const prodIDSlack = 64
 
-// sizingBufs hold fitDays' encoded year (about a megabyte) between requests.
-var sizingBufs = sync.Pool{New: func() any { return new([]byte) }}
+// A sizer is fitDays' encoder and its encoded year (about a megabyte),
+// kept from one request to the next: an encoder's first calendar allocates
+// its working memory.
+type sizer struct {
+	enc     *ical.Encoder
+	version string
+	buf     []byte
+}
+
+var sizers = sync.Pool{New: func() any { return new(sizer) }}
 
 // dateBytes splits the events of data, cal encoded, by their local date:
 // perDate[i] is the bytes of the events of the date i days after q.Start,

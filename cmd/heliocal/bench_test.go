@@ -165,6 +165,47 @@ func BenchmarkAdhocRequest(b *testing.B) {
 	b.ReportMetric(float64(size), "gzip-bytes/op")
 }
 
+// BenchmarkAdhocPreview: the builder's preview (/at.json) as a visitor
+// asks for it: seven days, and the subscribe link's window, sized so that
+// the rolling subscription fits max_feed_bytes on every day of the year (a
+// year of the query's entries, encoded). At 48.2° N with the default kinds
+// a year fits; at 71.29° N with seven kinds it does not (290 days).
+// cpu-ms/op is the process's CPU time per request.
+func BenchmarkAdhocPreview(b *testing.B) {
+	set := func() adhocSettings { return adhocSettings{layout: newLayout(""), refresh: 24 * time.Hour} }
+	srv, err := serve.New(serve.Options{
+		Logger:            slog.New(slog.DiscardHandler),
+		Build:             func(context.Context) (*publish.Bundle, error) { return &publish.Bundle{}, nil },
+		Adhoc:             adhocFeedFrom(set),
+		Preview:           adhocCalendarFrom(set),
+		AdhocDefaultKinds: []string{"sunrise", "sunset", "civil-dawn", "civil-dusk"},
+	})
+	if err != nil {
+		b.Fatal(err)
+	}
+	h := srv.Handler()
+	for _, c := range []struct{ name, query string }{
+		{"vienna", "lat=48.2&lon=16.4&tz=Europe/Vienna&start=2026-12-04"},
+		{"utqiagvik", "lat=71.29&lon=-156.8&kinds=sunrise,sunset,civil-dawn,civil-dusk,golden-hour,moonrise,moonset&start=2026-12-04"},
+	} {
+		b.Run(c.name, func(b *testing.B) {
+			get := func() {
+				w := &discardResponse{h: http.Header{}}
+				h.ServeHTTP(w, httptest.NewRequest("GET", "/at.json?"+c.query, nil))
+				if w.code != http.StatusOK {
+					b.Fatalf("status %d", w.code)
+				}
+			}
+			get() // the dates' shared ephemeris
+			cpu0 := cputime.Used()
+			for b.Loop() {
+				get()
+			}
+			b.ReportMetric(float64(cputime.Used()-cpu0)/1e6/float64(b.N), "cpu-ms/op")
+		})
+	}
+}
+
 // BenchmarkPreviewLampsNote: the builder's preview (/at.json) of a week
 // that needs no lamps, whose note looks beyond the week for the date the
 // lamps are needed again, as the subscribed feed does: within the first

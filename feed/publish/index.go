@@ -271,7 +271,7 @@ svg .tl{fill:#2e8b3e}
 <header>
 <h1>{{.Title}}</h1>
 {{with .Intro}}<p class="intro">{{.}}</p>{{end}}
-<p>{{.Feeds}} calendar feed{{if ne .Feeds 1}}s{{end}}, {{.Events}} events, {{.Size}}{{if .Generated}}, computed on {{.Generated}}{{end}}.
+<p>{{.Feeds}} calendar feed{{if ne .Feeds 1}}s{{end}}, {{.Events}} event{{if ne .Events "1"}}s{{end}}, {{.Size}}{{if .Generated}}, computed on {{.Generated}}{{end}}.
 {{if .Relative}}Subscribe by adding a feed's address (the link below, made absolute with this page's address) to your calendar app as a subscription.{{else}}The webcal link subscribes in your calendar app; the https address can be pasted into any app's "subscribe by URL".{{end}}
 Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{.}}{{end}}</p>
 </header>

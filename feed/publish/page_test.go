@@ -4,6 +4,8 @@ import (
 	"strconv"
 	"strings"
 	"testing"
+
+	"heliocal/feed"
 )
 
 // The page section gives the index its texts and the configuration's order.
@@ -55,5 +57,10 @@ func TestIndexDefaultTitleAndCount(t *testing.T) {
 		if i := strings.Index(html, "<p>"+strconv.Itoa(tc.n)+" calendar feed"); i < 0 || !strings.HasPrefix(html[i:], tc.want) {
 			t.Errorf("%d feeds: the index does not say %q", tc.n, tc.want)
 		}
+	}
+	one := *cals[0]
+	one.Entries = one.Entries[:1]
+	if html := string(renderIndexFor(t, opts, []*feed.Calendar{&one})); !strings.Contains(html, "<p>1 calendar feed, 1 event, ") {
+		t.Error("a feed of one event: the index does not say \"1 event\"")
 	}
 }

@@ -161,11 +161,18 @@ func zoneNotes(cfg *config.Config, now time.Time) []string {
 	var notes []string
 	for _, s := range cfg.Sites {
 		if s.ZoneInferred {
-			notes = append(notes, fmt.Sprintf("note: site %s has no timezone: using %s, the zone in force at %.4f, %.4f; add timezone: to choose another",
-				s.ID, config.DescribeZone(s.TimeZone.Location, now), s.Latitude, s.Longitude))
+			notes = append(notes, "note: "+zoneNote(&s, now))
 		}
 	}
 	return notes
+}
+
+// zoneNote says which zone was taken from the coordinates of site s, which
+// has no timezone, named with its offset at when: the words of check,
+// publish, serve and events alike.
+func zoneNote(s *config.Site, when time.Time) string {
+	return fmt.Sprintf("site %s has no timezone: using %s, the zone in force at %.4f, %.4f; add timezone: to choose another",
+		s.ID, config.DescribeZone(s.TimeZone.Location, when), s.Latitude, s.Longitude)
 }
 
 // checkConfig builds every feed of a valid configuration once and reports

@@ -265,12 +265,13 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 		return err
 	}
 	if site.ZoneInferred { // named with its offset on the first date listed
-		how, choose := "the configuration gives site "+site.ID+" no timezone", "add timezone: to the site to choose another"
-		if o.site == "" && o.feed == "" {
-			how, choose = "no --tz given", "give --tz to choose another"
+		first := time.Date(from.Year(), from.Month(), from.Day(), 12, 0, 0, 0, loc)
+		if o.site != "" || o.feed != "" {
+			fmt.Fprintf(g.stderr, "heliocal: note: %s\n", zoneNote(site, first))
+		} else {
+			fmt.Fprintf(g.stderr, "heliocal: no --tz given: using %s, the zone in force at %.4f, %.4f (give --tz to choose another)\n",
+				config.DescribeZone(loc, first), site.Latitude, site.Longitude)
 		}
-		fmt.Fprintf(g.stderr, "heliocal: %s: using %s, the zone in force at %.4f, %.4f (%s)\n", how,
-			config.DescribeZone(loc, time.Date(from.Year(), from.Month(), from.Day(), 12, 0, 0, 0, loc)), site.Latitude, site.Longitude, choose)
 	}
 	var specs []config.KindSpec
 	if o.feedSpecs != nil && !o.kindsSet {

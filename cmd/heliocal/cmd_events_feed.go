@@ -78,6 +78,10 @@ func runEventsFeed(ctx context.Context, g *globals, o *eventsOptions) error {
 	if err != nil {
 		return err
 	}
+	if site.ZoneInferred { // as events --site says it
+		loc := site.TimeZone.Location
+		fmt.Fprintf(g.stderr, "heliocal: note: %s\n", zoneNote(site, time.Date(first.Year(), first.Month(), first.Day(), 12, 0, 0, 0, loc)))
+	}
 	switch o.format {
 	case "ics":
 		data, err := ical.Marshal(cal, ical.Options{Version: versionString()})

@@ -73,6 +73,20 @@ func TestCheckInferredZone(t *testing.T) {
 	}
 }
 
+// events on a configured site without timezone names the zone it took in
+// check's words, with the offset of the first date listed (CDT from 14 March
+// 2027, second Sunday of March: Cuba's rule in the tz database).
+func TestEventsNamesInferredZoneAsCheck(t *testing.T) {
+	cfg := filepath.Join("..", "..", "testdata", "config", "missing-timezone.yaml")
+	for _, args := range [][]string{{"--site", "cane-field"}, {"--feed", "cane-sun"}} {
+		code, _, errOut := runCLI(t, append([]string{"--config", cfg, "events", "--from", "2027-06-01", "--to", "2027-06-01"}, args...)...)
+		want := "heliocal: note: site cane-field has no timezone: using America/Havana (UTC−04:00, CDT), the zone in force at 22.9500, -82.3000; add timezone: to choose another\n"
+		if code != 0 || errOut != want {
+			t.Errorf("%v: exit %d, stderr %q, want %q", args, code, errOut, want)
+		}
+	}
+}
+
 // publish says which zone it took for a site without timezone.
 func TestPublishNamesInferredZone(t *testing.T) {
 	cfg := filepath.Join("..", "..", "testdata", "config", "missing-timezone.yaml")

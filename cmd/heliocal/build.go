@@ -381,11 +381,12 @@ func adhocCalendarFrom(current func() adhocSettings) serve.PreviewFunc {
 			Skyline:   q.Skyline,
 			TimeZone:  config.Zone{Location: q.Location},
 		}
+		place := feed.Coords(q.Latitude, q.Longitude, 4) // "45.0300° S, 168.6600° E", as events names a place
 		if q.Name != "" {
-			site.Name = q.Name
+			site.Name, place = q.Name, q.Name
 		}
-		f := &config.Feed{ID: q.ID(), Title: "Sky events at " + site.Name, Site: site.ID, UTC: q.UTC, Alarm: config.Duration(q.Alarm),
-			Description: "Sun and Moon events computed by heliocal for " + site.Name + "."}
+		f := &config.Feed{ID: q.ID(), Title: "Sky events at " + place, Site: site.ID, UTC: q.UTC, Alarm: config.Duration(q.Alarm),
+			Description: "Sun and Moon events computed by heliocal for " + place + "."}
 		for _, name := range q.Kinds {
 			k, err := config.ParseKind(name)
 			if err != nil {

@@ -60,3 +60,18 @@ func getOK(t *testing.T, url string) string {
 	}
 	return string(b)
 }
+
+// An ad-hoc feed for a place without a name is titled by its coordinates as
+// events names a place, with the hemispheres (45.03° S is south of the
+// equator, 168.66° E east of Greenwich), not the signed numbers of the query.
+func TestAdhocTitleNamesHemispheres(t *testing.T) {
+	ts := builderServer(t)
+	q := "lat=-45.03&lon=168.66&tz=Pacific/Auckland&kinds=sunset&start=2027-01-01&days=3"
+	ics := getOK(t, ts.URL+"/at.ics?"+q)
+	if !strings.Contains(ics, "X-WR-CALNAME:Sky events at 45.0300° S\\, 168.6600° E\r\n") {
+		t.Errorf("ad-hoc feed's name:\n%s", ics)
+	}
+	if page := getOK(t, ts.URL+"/at?"+q); !strings.Contains(page, "<h1>Sky events at 45.0300° S, 168.6600° E</h1>") || !strings.Contains(page, `<p class="intro">45.0300° S, 168.6600° E, 0 m ·`) {
+		t.Errorf("the /at page names the place by signed numbers:\n%s", page)
+	}
+}

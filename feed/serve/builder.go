@@ -653,7 +653,7 @@ func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
 	}
 	https, page := s.links(r, q, start, 0)
 	v := tableView{Page: s.page(), Title: cal.Title, Zone: q.Location.String(),
-		Coords: fmt.Sprintf("%.4f, %.4f, %g m", q.Latitude, q.Longitude, q.Elevation) + q.horizonWords(),
+		Coords: feed.Coords(q.Latitude, q.Longitude, 4) + fmt.Sprintf(", %g m", q.Elevation) + q.horizonWords(),
 		HTTPS:  https, Webcal: template.URL(webcal(https)), Link: template.URL(page), QR: template.URL(qrDataURL(page)),
 		Days: days(cal, q), From: q.Start.Format(time.DateOnly), To: q.Start.AddDate(0, 0, q.Days-1).Format(time.DateOnly),
 		Builder: !s.page().NoBuilder, Legal: slices.ContainsFunc(q.Kinds, LegalKind)}

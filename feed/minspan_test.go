@@ -134,3 +134,35 @@ func TestUnderMinimumTextRounding(t *testing.T) {
 		t.Errorf("sun band: %q", title)
 	}
 }
+
+// The calendar's description says once for each span kind with a
+// min_duration what is left out and that the dates (nights) left without a
+// span get a note; a kind without one, and a point kind, say nothing of it.
+func TestMinDurationInCalendarDescription(t *testing.T) {
+	s := site(t, "mid-50", 50, 10, "Europe/Berlin")
+	sk := sky(t, "2027-05-12", "2027-05-12")
+	spec := func(name string, d time.Duration) config.KindSpec {
+		return config.KindSpec{Kind: mustKinds(t, name)[0], MinDuration: config.Duration(d)}
+	}
+	f := &config.Feed{ID: "spans", Site: s.ID, Kinds: []config.KindSpec{
+		spec("dark-window", 45*time.Minute), spec("golden-hour", 20*time.Minute), spec("sun-band:2..12", 15*time.Minute),
+		spec("solar-eclipse", 30*time.Minute), spec("blue-hour", 0), spec("sunset", 0),
+	}}
+	cal, err := sk.Calendar(context.Background(), s, f, date("2027-05-12"), date("2027-05-12"), Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{
+		"\nDark sky: windows under 45 min are left out; a night that has only shorter ones gets a note saying so.\n",
+		"\nGolden hour: spans under 20 min are left out; a date that has only shorter ones gets a note saying so.\n",
+		"\nSun between +2° and +12°: spans under 15 min are left out; a date that has only shorter ones gets a note saying so.\n",
+		"\nSolar eclipse: spans under 30 min are left out.\n",
+	} {
+		if strings.Count(cal.Description, want) != 1 {
+			t.Errorf("the description does not say once %q:\n%s", want, cal.Description)
+		}
+	}
+	if strings.Contains(cal.Description, "Blue hour: spans") || strings.Contains(cal.Description, "Sunset: spans") {
+		t.Errorf("a kind without min_duration is said to leave spans out:\n%s", cal.Description)
+	}
+}

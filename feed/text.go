@@ -597,6 +597,7 @@ func kindMeanings(s *config.Site, specs []config.KindSpec) []string {
 			default:
 				add(kindMeaning(s, k.Name))
 			}
+			add(minDurationMeaning(k, spec.MinDuration.D()))
 		}
 	}
 	if len(thresholds) > 0 {
@@ -612,6 +613,27 @@ func kindMeanings(s *config.Site, specs []config.KindSpec) []string {
 		out = append(out, lightingAdvice)
 	}
 	return out
+}
+
+// minDurationMeaning says, once in the calendar's description, that the
+// spans of kind k shorter than its min_duration d are left out, and that a
+// date (a night) of a daily span kind left without one has a note saying
+// so; "" when d is 0 or the kind has no spans to leave out.
+func minDurationMeaning(k config.Kind, d time.Duration) string {
+	if d <= 0 {
+		return ""
+	}
+	switch k.Name {
+	case "golden-hour", "blue-hour":
+		return fmt.Sprintf("%s: spans under %s are left out; a date that has only shorter ones gets a note saying so.", plainNames[k.Name], amount(d))
+	case config.KindSunBand:
+		return fmt.Sprintf("%s: spans under %s are left out; a date that has only shorter ones gets a note saying so.", bandBase(k.Altitude, k.High), amount(d))
+	case "dark-window":
+		return fmt.Sprintf("Dark sky: windows under %s are left out; a night that has only shorter ones gets a note saying so.", amount(d))
+	case "solar-eclipse", "lunar-eclipse":
+		return fmt.Sprintf("%s: spans under %s are left out.", plainNames[k.Name], amount(d))
+	}
+	return ""
 }
 
 // azimuthMeaning says how sunrise, sunset, moonrise and moonset entries

@@ -904,11 +904,7 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 		}
 	}
 	en.Start = start
-	b = append(z.appendClock(append(b, "From "...), start), pt.startWords...)
-	b = append(b, skippedClock(*pl.start, start, z)...)
-	if sd := z.date(start); sd.After(d) {
-		b = append(sd.AppendFormat(append(b, " the next day ("...), "Mon 2 Jan"), ')')
-	}
+	noEnd := false
 	switch {
 	case pl.end != nil && pl.end.IsClock:
 		en.End = end
@@ -917,24 +913,43 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 		if err != nil {
 			return err
 		}
-		if !ok {
-			b = append(append(append(b, "; no "...), pt.endName...), " that day or the next to end it"...)
-			break
-		}
-		en.End = end
+		en.End, noEnd = end, !ok
 	case pl.cfg.For > 0:
 		en.End = start.Add(pl.cfg.For.D())
+	}
+	sm, sMoved := movedClock(*pl.start, start, z)
+	var em clockMove
+	eMoved := false
+	if pl.end != nil && !en.End.IsZero() {
+		em, eMoved = movedClock(*pl.end, en.End, z)
+	}
+	// a start and an end the same jump of the clocks moves: said once,
+	// after the end
+	both := sMoved && eMoved && sm.by == em.by && z.date(start).Equal(z.date(en.End))
+	sd := z.date(start)
+	var next time.Time // the start's date, when it is past the plan's
+	if sd.After(d) {
+		next = sd
+	}
+	b = append(z.appendClock(append(b, "From "...), start), pt.startWords...)
+	b = appendMoved(b, sm, sMoved && !both, next, true)
+	if noEnd {
+		b = append(append(append(b, "; no "...), pt.endName...), " that day or the next to end it"...)
 	}
 	if !en.End.IsZero() {
 		b = z.appendClock(append(b, " to "...), en.End)
 		if pl.end != nil {
-			b = append(append(b, pt.endWords...), skippedClock(*pl.end, en.End, z)...)
+			b = append(b, pt.endWords...)
 		}
-		if ed := z.date(en.End); ed.After(d) {
-			en.Facts.NextDay = true
-			if ed.After(z.date(start)) { // said once when the start is past midnight too
-				b = append(ed.AppendFormat(append(b, " the next day ("...), "Mon 2 Jan"), ')')
-			}
+		ed := z.date(en.End)
+		en.Facts.NextDay = ed.After(d)
+		switch {
+		case both:
+			b = append(append(append(b, " ("...), bothMovedWords(sm, em)...), ')')
+		case ed.After(d) && ed.After(sd): // said once when the start is past midnight too
+			b = appendMoved(b, em, eMoved, ed, false)
+		default: // the date of a move is not said twice either
+			b = appendMoved(b, em, eMoved, time.Time{}, next.IsZero() || !ed.Equal(next))
 		}
 	}
 	b = append(b, '.')
@@ -1033,28 +1048,109 @@ func clockText(c time.Duration) string {
 	return fmt.Sprintf("%02d:%02d", int(c/time.Hour), int(c%time.Hour/time.Minute))
 }
 
-// skippedClock says why a clock time of a plan is shown later than written:
-// the local clock skips it on that date (clocks set forward, as for summer
-// time), so clockOn moved it by the jump. It is "" otherwise.
-func skippedClock(ts config.TimeSpec, t time.Time, z *zoneCache) string {
+// clockMove is a plan's clock time that the local clock skips on its date
+// (clocks set forward, as for summer time), so that clockOn moved it by the
+// jump: see movedClock.
+type clockMove struct {
+	written time.Duration // the clock time as written
+	by      time.Duration // how much later it is shown
+	t       time.Time     // the instant, in the site's zone
+}
+
+// movedClock is the move of the clock time ts shown at t; false when ts is
+// not a clock time or t shows it as written.
+func movedClock(ts config.TimeSpec, t time.Time, z *zoneCache) (clockMove, bool) {
 	if !ts.IsClock {
-		return ""
+		return clockMove{}, false
 	}
 	// the clock shown, to the minute, from the zone's cached offset
 	u := t.Unix()
 	_, off := z.at(u)
 	shown := time.Duration(daySeconds(u+off)/60) * time.Minute
 	if shown == ts.Clock {
+		return clockMove{}, false
+	}
+	return clockMove{written: ts.Clock, by: (shown - ts.Clock + 24*time.Hour) % (24 * time.Hour), t: t.In(z.loc)}, true
+}
+
+// words says why the time moved, "moved from 00:30, which the clocks skip
+// on Sun 28 Mar 2027: the clocks go forward for summer time by 1 h", or,
+// when its date is said beside it (not dated), "moved from 00:30, which the
+// clocks skip: they go forward for summer time by 1 h".
+func (m clockMove) words(dated bool) string {
+	how := "forward"
+	if m.t.IsDST() {
+		how = "forward for summer time"
+	}
+	if !dated {
+		return fmt.Sprintf("moved from %s, which the clocks skip: they go %s by %s", clockText(m.written), how, amount(m.by))
+	}
+	return fmt.Sprintf("moved from %s, which the clocks skip on %s: the clocks go %s by %s", clockText(m.written),
+		m.t.Format("Mon 2 Jan 2006"), how, amount(m.by))
+}
+
+// skipped is the span of clock times skipped by the change of offset that
+// moved the time, "00:00–01:00", from the tz database's transition; "" if
+// the zone does not give it.
+func (m clockMove) skipped() string {
+	tr, _ := m.t.ZoneBounds()
+	if tr.IsZero() || tr.After(m.t) {
 		return ""
 	}
-	lt := t.In(z.loc)
-	moved := (shown - ts.Clock + 24*time.Hour) % (24 * time.Hour)
-	why := "the clocks go forward"
-	if lt.IsDST() {
-		why = "the clocks go forward for summer time"
+	_, before := tr.Add(-time.Second).Zone()
+	_, after := tr.Zone()
+	if time.Duration(after-before)*time.Second != m.by {
+		return ""
 	}
-	return fmt.Sprintf(" (moved from %s, which the clocks skip on %s: %s by %s)", clockText(ts.Clock),
-		lt.Format("Mon 2 Jan 2006"), why, amount(moved))
+	from := tr.In(time.FixedZone("", before))
+	return from.Format("15:04") + "–" + tr.Format("15:04")
+}
+
+// bothMovedWords says once why a plan's start and end, both skipped by the
+// same change of the clocks, moved: "both moved by 1 h from 00:00 and
+// 00:45: the clocks skip 00:00–01:00 on Sun 28 Mar 2027 for summer time".
+func bothMovedWords(start, end clockMove) string {
+	b := fmt.Sprintf("both moved by %s from %s and %s: the clocks skip ", amount(start.by), clockText(start.written),
+		clockText(end.written))
+	if sk := start.skipped(); sk != "" {
+		b += sk + " "
+	}
+	b += "on " + start.t.Format("Mon 2 Jan 2006")
+	if start.t.IsDST() {
+		b += " for summer time"
+	}
+	return b
+}
+
+// appendMoved appends what follows a plan's time shown: " the next day (Sun
+// 28 Mar)" when next, its date, is not zero, with the move within the
+// brackets, " the next day (Sun 28 Mar; moved from 00:30, which the clocks
+// skip: …)"; otherwise the move alone, " (moved from 00:30, …)", with its
+// date when dated; nothing when neither.
+func appendMoved(b []byte, m clockMove, moved bool, next time.Time, dated bool) []byte {
+	if !next.IsZero() {
+		b = next.AppendFormat(append(b, " the next day ("...), "Mon 2 Jan")
+		if moved {
+			b = append(append(b, "; "...), m.words(false)...)
+		}
+		return append(b, ')')
+	}
+	if moved {
+		b = append(append(append(b, " ("...), m.words(dated)...), ')')
+	}
+	return b
+}
+
+// skippedClock says why a clock time of a plan is shown later than written
+// (movedClock), " (moved from 00:30, which the clocks skip on Sun 28 Mar
+// 2027: the clocks go forward for summer time by 1 h)", or "" when it is
+// not.
+func skippedClock(ts config.TimeSpec, t time.Time, z *zoneCache) string {
+	m, ok := movedClock(ts, t, z)
+	if !ok {
+		return ""
+	}
+	return " (" + m.words(true) + ")"
 }
 
 // timeWords says which event a plan time follows, " (30 min after

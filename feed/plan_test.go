@@ -306,12 +306,14 @@ func TestPlanClockSkippedEnd(t *testing.T) {
 			"No time today: the start, 00:30, is at 01:30:00 CDT " + fmt.Sprintf(moved, "00:30") + ", not before the end, 01:30, on Sunday 14 March 2027."},
 		{"start moved before the end", "00:30", "01:45", "2027-03-14", "2027-03-14T05:30:00Z", "2027-03-14T05:45:00Z",
 			"From 01:30:00 CDT " + fmt.Sprintf(moved, "00:30") + " to 01:45:00 CDT."},
-		// both in the skipped hour: both move, the plan keeps its 30 min
+		// both in the skipped hour: both move, the plan keeps its 30 min,
+		// and the move is said once
 		{"start and end skipped", "00:10", "00:40", "2027-03-14", "2027-03-14T05:10:00Z", "2027-03-14T05:40:00Z",
-			" to 01:40:00 CDT " + fmt.Sprintf(moved, "00:40") + "."},
-		// an end past midnight in the skipped hour: 00:30 the next day
+			"From 01:10:00 CDT to 01:40:00 CDT (both moved by 1 h from 00:10 and 00:40: the clocks skip 00:00–01:00 on Sun 14 Mar 2027 for summer time)."},
+		// an end past midnight in the skipped hour: 00:30 the next day,
+		// the date said once, the move beside it
 		{"end skipped the next day", "23:00", "00:30", "2027-03-13", "2027-03-14T04:00:00Z", "2027-03-14T05:30:00Z",
-			"From 23:00:00 CST to 01:30:00 CDT " + fmt.Sprintf(moved, "00:30") + " the next day (Sun 14 Mar)."},
+			"From 23:00:00 CST to 01:30:00 CDT the next day (Sun 14 Mar; moved from 00:30, which the clocks skip: they go forward for summer time by 1 h)."},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			es := planEntries(t, s, "2027-03-13", "2027-03-15", config.Plan{Title: "Night check", Date: "every day", Start: c.start, End: c.end})
@@ -337,6 +339,84 @@ func TestPlanClockSkippedEnd(t *testing.T) {
 			to, _ := time.Parse(time.RFC3339, c.to)
 			if e.AllDay || !e.Start.Equal(from) || !e.End.Equal(to) || e.Facts.NextDay != (c.date == "2027-03-13") {
 				t.Errorf("%s–%s (next day %v), want %s–%s", e.Start.UTC(), e.End.UTC(), e.Facts.NextDay, from, to)
+			}
+		})
+	}
+}
+
+// TestPlanClockSkippedSaidOnce: a plan's clock times the clocks skip are
+// said to have moved once per sentence, the date once. The changes, from the
+// tz database:
+//   - Asia/Beirut, Rule Lebanon 1993 max - Mar lastSun 0:00 1:00 S: 00:00
+//     EET (UT + 2 h) to 01:00 EEST (UT + 3 h) on Sunday 28 March 2027;
+//   - America/Santiago, Rule Chile 2023 max - Sep Sun>=2 4:00u 1:00 -: 00:00
+//     -04 to 01:00 -03 on Sunday 6 September 2026 (spring in the south);
+//   - Europe/London, Rule EU 1981 max - Mar lastSun 1:00u 1:00 S: 01:00 GMT
+//     to 02:00 BST on Sunday 28 March 2027 (a skip not at midnight).
+func TestPlanClockSkippedSaidOnce(t *testing.T) {
+	for _, c := range []struct {
+		name, zone    string
+		lat, lon      float64
+		change        string // a UTC instant of the change, from the tz database
+		before, after int    // the offsets around it, in hours
+		start, end    string
+		date          string // the plan's date
+		from, to      string // UTC
+		text          string // the description
+	}{
+		{"Beirut, astronomical dusk to an end skipped the next day", "Asia/Beirut", 33.89, 35.50, "2027-03-27T22:00:00Z", 2, 3,
+			"astronomical-dusk", "00:30", "2027-03-27", "", "2027-03-27T22:30:00Z",
+			" to 01:30:00 EEST the next day (Sun 28 Mar; moved from 00:30, which the clocks skip: they go forward for summer time by 1 h).\n"},
+		{"Beirut, midnight check", "Asia/Beirut", 33.89, 35.50, "2027-03-27T22:00:00Z", 2, 3,
+			"00:00", "00:45", "2027-03-28", "2027-03-27T22:00:00Z", "2027-03-27T22:45:00Z",
+			"From 01:00:00 EEST to 01:45:00 EEST (both moved by 1 h from 00:00 and 00:45: the clocks skip 00:00–01:00 on Sun 28 Mar 2027 for summer time)."},
+		{"Santiago, an end skipped the next day", "America/Santiago", -33.45, -70.67, "2026-09-06T04:00:00Z", -4, -3,
+			"23:30", "00:30", "2026-09-05", "2026-09-06T03:30:00Z", "2026-09-06T04:30:00Z",
+			"From 23:30:00 UTC−04 to 01:30:00 UTC−03 the next day (Sun 6 Sep; moved from 00:30, which the clocks skip: they go forward for summer time by 1 h)."},
+		{"Santiago, midnight check", "America/Santiago", -33.45, -70.67, "2026-09-06T04:00:00Z", -4, -3,
+			"00:00", "00:45", "2026-09-06", "2026-09-06T04:00:00Z", "2026-09-06T04:45:00Z",
+			"From 01:00:00 UTC−03 to 01:45:00 UTC−03 (both moved by 1 h from 00:00 and 00:45: the clocks skip 00:00–01:00 on Sun 6 Sep 2026 for summer time)."},
+		{"London, both in the skipped hour", "Europe/London", 51.51, -0.13, "2027-03-28T01:00:00Z", 0, 1,
+			"01:15", "01:45", "2027-03-28", "2027-03-28T01:15:00Z", "2027-03-28T01:45:00Z",
+			"From 02:15:00 BST to 02:45:00 BST (both moved by 1 h from 01:15 and 01:45: the clocks skip 01:00–02:00 on Sun 28 Mar 2027 for summer time)."},
+		{"London, an end skipped the next day", "Europe/London", 51.51, -0.13, "2027-03-28T01:00:00Z", 0, 1,
+			"23:00", "01:30", "2027-03-27", "2027-03-27T23:00:00Z", "2027-03-28T01:30:00Z",
+			"From 23:00:00 GMT to 02:30:00 BST the next day (Sun 28 Mar; moved from 01:30, which the clocks skip: they go forward for summer time by 1 h)."},
+		{"London, the start alone skipped", "Europe/London", 51.51, -0.13, "2027-03-28T01:00:00Z", 0, 1,
+			"01:30", "03:00", "2027-03-28", "2027-03-28T01:30:00Z", "2027-03-28T02:00:00Z",
+			"From 02:30:00 BST (moved from 01:30, which the clocks skip on Sun 28 Mar 2027: the clocks go forward for summer time by 1 h) to 03:00:00 BST."},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			s := site(t, "s", c.lat, c.lon, c.zone)
+			ch, _ := time.Parse(time.RFC3339, c.change)
+			if _, off := ch.Add(-time.Second).In(s.TimeZone.Location).Zone(); off != c.before*3600 {
+				t.Fatalf("zone data: offset %d s before %s", off, ch)
+			}
+			if _, off := ch.In(s.TimeZone.Location).Zone(); off != c.after*3600 {
+				t.Fatalf("zone data: offset %d s at %s", off, ch)
+			}
+			es := planEntries(t, s, c.date, c.date, config.Plan{Title: "Midnight check", Date: "every day", Start: c.start, End: c.end})
+			if len(es) != 1 {
+				t.Fatalf("%d entries", len(es))
+			}
+			e := es[0]
+			if !strings.Contains(e.Description, c.text) {
+				t.Errorf("description\n%s\nwant %q", e.Description, c.text)
+			}
+			if n := strings.Count(e.Description, "moved"); n != 1 {
+				t.Errorf("description\n%s\nsays %d times that a time moved", e.Description, n)
+			}
+			if day := ch.In(s.TimeZone.Location).Format("Mon 2 Jan"); strings.Count(e.Description, day) != 1 {
+				t.Errorf("description\n%s\nnames %s %d times", e.Description, day, strings.Count(e.Description, day))
+			}
+			to, _ := time.Parse(time.RFC3339, c.to)
+			if !e.End.Equal(to) {
+				t.Errorf("ends %s, want %s", e.End.UTC(), to)
+			}
+			if c.from != "" {
+				if from, _ := time.Parse(time.RFC3339, c.from); !e.Start.Equal(from) {
+					t.Errorf("starts %s, want %s", e.Start.UTC(), from)
+				}
 			}
 		})
 	}

@@ -382,6 +382,11 @@ func TestPlanClockSkippedSaidOnce(t *testing.T) {
 		{"London, an end skipped the next day", "Europe/London", 51.51, -0.13, "2027-03-28T01:00:00Z", 0, 1,
 			"23:00", "01:30", "2027-03-27", "2027-03-27T23:00:00Z", "2027-03-28T01:30:00Z",
 			"From 23:00:00 GMT to 02:30:00 BST the next day (Sun 28 Mar; moved from 01:30, which the clocks skip: they go forward for summer time by 1 h)."},
+		// the start past midnight names the date; the end's move does not
+		// name it again
+		{"London, a start past midnight and an end skipped", "Europe/London", 51.51, -0.13, "2027-03-28T01:00:00Z", 0, 1,
+			"sunset+6h", "01:30", "2027-03-27", "", "2027-03-28T01:30:00Z",
+			" (6 h after sunset) the next day (Sun 28 Mar) to 02:30:00 BST (moved from 01:30, which the clocks skip: they go forward for summer time by 1 h).\n"},
 		{"London, the start alone skipped", "Europe/London", 51.51, -0.13, "2027-03-28T01:00:00Z", 0, 1,
 			"01:30", "03:00", "2027-03-28", "2027-03-28T01:30:00Z", "2027-03-28T02:00:00Z",
 			"From 02:30:00 BST (moved from 01:30, which the clocks skip on Sun 28 Mar 2027: the clocks go forward for summer time by 1 h) to 03:00:00 BST."},

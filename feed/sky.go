@@ -157,6 +157,10 @@ type Note struct {
 	// the kind's min_duration (Minimum), the longest of them
 	// (noteUnderMinimum); zero for other notes.
 	Longest, Minimum time.Duration
+	// Dusk is, for a twilight's dusk note (state Crosses) of a date on
+	// which the Sun stays above the threshold until midnight, the dusk of
+	// that evening, after midnight on the next date; zero otherwise.
+	Dusk time.Time
 }
 
 // Place is where events are computed: an observer and the zone whose local
@@ -1259,15 +1263,32 @@ func (c *collector) twilightEvents(k config.Kind, th *threshold, dir astro.Direc
 			continue
 		}
 		lo := int(byDate[i])
-		if lo < end {
+		// a dusk's note speaks of the date's evening and night, up to the
+		// next date's solar noon: its dusk may come after midnight
+		evening := dir == astro.Setting && twilight(family)
+		var dusk time.Time
+		if evening {
+			var err error
+			if dusk, err = c.duskAfterMidnight(th, end, starts[i+2], starts[i+3]); err != nil {
+				c.events = events
+				return err
+			}
+		}
+		if lo < end && (!evening || !dusk.IsZero()) {
 			// crossed the other way only: the event passed to a
 			// neighbouring date (noteSilent's note)
 			c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.Crosses, Family: "no-event:" + k.String()})
 			continue
 		}
-		up := th.upFirst // the Sun above the threshold: as the last crossing left it
-		if lo > 0 {
-			up = th.xs[lo-1].Direction == astro.Rising
+		if !dusk.IsZero() {
+			// no crossing on the date: this evening's dusk comes after
+			// midnight, the first after nights without one
+			c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.Crosses, Family: "no-event:" + k.String(), Dusk: dusk})
+			continue
+		}
+		up := th.upFirst // the Sun above the threshold: as the date's last crossing left it
+		if end > 0 {
+			up = th.xs[end-1].Direction == astro.Rising
 		}
 		n := Note{Kind: k, Date: d, State: astro.AlwaysBelow, Family: family}
 		if up {
@@ -1284,6 +1305,24 @@ func (c *collector) twilightEvents(k config.Kind, th *threshold, dir astro.Direc
 	}
 	c.events = events
 	return nil
+}
+
+// duskAfterMidnight returns the dusk of a date's evening that comes after
+// midnight: the crossing th.xs[next] (the first after the date) when it is
+// a setting one before the solar noon of the next date, which begins at
+// from and ends at to; zero when there is none. At 69.65° N, 18.95° E on
+// 17 September 2027 the astronomical dusk comes at 00:00:58 CEST on the
+// 18th, after a summer of nights without one.
+func (c *collector) duskAfterMidnight(th *threshold, next int, from, to time.Time) (time.Time, error) {
+	if next >= len(th.xs) || th.xs[next].Direction != astro.Setting || !th.xs[next].Time.Before(to) {
+		return time.Time{}, nil
+	}
+	x := th.xs[next].Time
+	ts, err := c.sky.eph.AppendSunTransits(nil, c.p.Observer, from, to)
+	if err != nil || len(ts) == 0 || !x.Before(ts[0].Time) {
+		return time.Time{}, err
+	}
+	return x, nil
 }
 
 // dateCrossings returns where each date's crossings of th begin in th.xs

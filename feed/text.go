@@ -1201,6 +1201,12 @@ func describeNote(s *siteInfo, n Note) (string, string) {
 	}
 	if n.State == astro.Crosses && !n.Kind.IsMoon() {
 		title, desc = noEventToday(n.Kind)
+		if !n.Dusk.IsZero() {
+			// the evening's dusk is known: it comes after midnight
+			loc := s.TimeZone.Location
+			desc = fmt.Sprintf("No %s on this date: this evening's comes after midnight, at %s on %s",
+				strings.ToLower(plainNames[n.Kind.Name]), localClock(n.Dusk, loc), ToSecond(n.Dusk).In(loc).Format("Mon 2 Jan"))
+		}
 		return title, desc + "."
 	}
 	switch n.Family {

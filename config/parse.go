@@ -17,6 +17,7 @@ import (
 	"time"
 
 	"github.com/go-viper/mapstructure/v2"
+	"github.com/pelletier/go-toml/v2"
 	"github.com/spf13/viper"
 	"go.yaml.in/yaml/v3"
 )
@@ -558,6 +559,11 @@ func decodeHook() mapstructure.DecodeHookFunc {
 				return t.Format(time.DateOnly), nil
 			}
 			return t.Format(time.RFC3339), nil
+		}
+		if d, ok := data.(toml.LocalDate); ok && to.Kind() == reflect.String {
+			// TOML reads an unquoted 2027-06-12 as a local date: give
+			// text keys (a plan's date, a dates list) the date as written
+			return d.String(), nil
 		}
 		if to.Kind() == reflect.Int && (from.Kind() == reflect.Float64 || from.Kind() == reflect.Float32) {
 			f := reflect.ValueOf(data).Float()

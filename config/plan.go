@@ -60,17 +60,18 @@ func ParseMonth(s string) (time.Month, bool) {
 	return 0, false
 }
 
-// DateFilter keeps the dates on some days of the week and in some months.
-// The zero DateFilter keeps every date.
+// DateFilter keeps the dates on some days of the week, in some months and
+// among some listed dates. The zero DateFilter keeps every date.
 type DateFilter struct {
-	weekdays uint8  // bit d: time.Weekday d kept; 0 = all
-	months   uint16 // bit m: time.Month m kept; 0 = all
+	weekdays uint8   // bit d: time.Weekday d kept; 0 = all
+	months   uint16  // bit m: time.Month m kept; 0 = all
+	dates    []int64 // the listed dates kept, as days since 1970-01-01, sorted; empty = all
 }
 
-// NewDateFilter builds the filter of the weekdays and months lists as
-// written in the file; names that do not parse are ignored (Validate
+// NewDateFilter builds the filter of the weekdays, months and dates lists
+// as written in the file; values that do not parse are ignored (Validate
 // reports them).
-func NewDateFilter(weekdays, months []string) DateFilter {
+func NewDateFilter(weekdays, months, dates []string) DateFilter {
 	var f DateFilter
 	for _, w := range weekdays {
 		if d, ok := ParseWeekday(w); ok {
@@ -82,25 +83,66 @@ func NewDateFilter(weekdays, months []string) DateFilter {
 			f.months |= 1 << mm
 		}
 	}
+	for _, s := range dates {
+		if d, err := ParseListedDate(s); err == nil {
+			f.dates = append(f.dates, dayNumber(d))
+		}
+	}
+	slices.Sort(f.dates)
 	return f
 }
 
 // IsZero reports whether the filter keeps every date.
-func (f DateFilter) IsZero() bool { return f == DateFilter{} }
+func (f DateFilter) IsZero() bool { return f.weekdays == 0 && f.months == 0 && len(f.dates) == 0 }
 
 // Allows reports whether the civil date d (its year, month and day) is kept.
 func (f DateFilter) Allows(d time.Time) bool {
 	if f.weekdays != 0 && f.weekdays&(1<<d.Weekday()) == 0 {
 		return false
 	}
-	return f.months == 0 || f.months&(1<<d.Month()) != 0
+	if f.months != 0 && f.months&(1<<d.Month()) == 0 {
+		return false
+	}
+	if len(f.dates) == 0 {
+		return true
+	}
+	_, ok := slices.BinarySearch(f.dates, dayNumber(d))
+	return ok
+}
+
+// dayNumber is the number of days from 1970-01-01 to the civil date of d
+// (its year, month and day, whatever its location).
+func dayNumber(d time.Time) int64 {
+	return time.Date(d.Year(), d.Month(), d.Day(), 0, 0, 0, 0, time.UTC).Unix() / (24 * 60 * 60)
+}
+
+// The dates a kinds entry's dates list may name: the span the astronomy
+// covers (astro.MinTime..astro.MaxTime; config does not import astro).
+const (
+	FirstListedDate = "1800-01-01"
+	LastListedDate  = "2200-12-31"
+)
+
+// ParseListedDate reads a date of a dates list, "YYYY-MM-DD", and returns
+// it at 00:00 UTC. A date that does not exist ("2027-02-30") or lies
+// outside FirstListedDate..LastListedDate is a *RuleError.
+func ParseListedDate(s string) (time.Time, error) {
+	d, err := time.Parse(time.DateOnly, strings.TrimSpace(s))
+	if err != nil {
+		return time.Time{}, &RuleError{Msg: "not a date", Hint: "write YYYY-MM-DD, e.g. 2027-06-12"}
+	}
+	if t := d.Format(time.DateOnly); t < FirstListedDate || t > LastListedDate {
+		return time.Time{}, &RuleError{Msg: fmt.Sprintf("outside the supported range %s..%s", FirstListedDate, LastListedDate),
+			Hint: "the sky is computed for these dates only"}
+	}
+	return d, nil
 }
 
 // Filter returns the date filter of a kinds entry.
-func (ks KindSpec) Filter() DateFilter { return NewDateFilter(ks.Weekdays, ks.Months) }
+func (ks KindSpec) Filter() DateFilter { return NewDateFilter(ks.Weekdays, ks.Months, ks.Dates) }
 
-// Filter returns the date filter of a plan.
-func (p Plan) Filter() DateFilter { return NewDateFilter(p.Weekdays, p.Months) }
+// Filter returns the date filter of a plan (its date rule names its dates).
+func (p Plan) Filter() DateFilter { return NewDateFilter(p.Weekdays, p.Months, nil) }
 
 // ParseClock reads a local clock time "HH:MM" (00:00..23:59) and returns
 // the time since midnight.
@@ -546,7 +588,7 @@ func checkAlarm(ps *problems, path string, a *Duration) {
 	}
 }
 
-func checkFilter(ps *problems, p string, weekdays, months []string) {
+func checkFilter(ps *problems, p string, weekdays, months, dates []string) {
 	for _, l := range []struct {
 		key, what, all      string
 		values, names, full []string
@@ -568,6 +610,21 @@ func checkFilter(ps *problems, p string, weekdays, months []string) {
 			ps.add(fmt.Sprintf("%s.%s[%d]", p, l.key, i), v, l.what, hint)
 		}
 	}
+	seen := make(map[int64]int, len(dates)) // day number: its first index
+	for i, v := range dates {
+		path := fmt.Sprintf("%s.dates[%d]", p, i)
+		d, err := ParseListedDate(v)
+		if err != nil {
+			re := err.(*RuleError)
+			ps.add(path, v, re.Msg, re.Hint)
+			continue
+		}
+		if j, ok := seen[dayNumber(d)]; ok {
+			ps.add(path, v, fmt.Sprintf("listed twice (also %s.dates[%d])", p, j), "remove one")
+			continue
+		}
+		seen[dayNumber(d)] = i
+	}
 }
 
 // nearName is the day or month name a misspelt one v (lower case) most
@@ -588,7 +645,7 @@ func nearName(v string, short, full []string) string {
 }
 
 // validateOptions checks the per-entry options of a kinds entry: alarm,
-// min_duration, weekdays, months and the lighting options.
+// min_duration, weekdays, months, dates and the lighting options.
 func (ks *KindSpec) validateOptions(ps *problems, p string) {
 	checkAlarm(ps, p+".alarm", ks.Alarm)
 	if md := ks.MinDuration.D(); md < 0 || md > spanLimit {
@@ -597,7 +654,7 @@ func (ks *KindSpec) validateOptions(ps *problems, p string) {
 		ps.add(p+".min_duration", ks.MinDuration.String(), fmt.Sprintf("has no meaning for %s: its events have no length", ks.Kind.String()),
 			"use it on dark-window, golden-hour, blue-hour, lighting or the eclipses")
 	}
-	checkFilter(ps, p, ks.Weekdays, ks.Months)
+	checkFilter(ps, p, ks.Weekdays, ks.Months, ks.Dates)
 	lighting := ks.Kind.Name == KindLighting
 	onlyLighting := func(key, v string) bool {
 		if v != "" && !lighting {
@@ -654,7 +711,7 @@ func (pl *Plan) validate(ps *problems, p string) {
 	case pl.For < 0 || pl.For > Duration(spanLimit):
 		ps.add(p+".for", pl.For.String(), "must be within 0..24h", `e.g. "3h"`)
 	}
-	checkFilter(ps, p, pl.Weekdays, pl.Months)
+	checkFilter(ps, p, pl.Weekdays, pl.Months, nil)
 	checkAlarm(ps, p+".alarm", pl.Alarm)
 }
 

@@ -121,10 +121,12 @@ type KindSpec struct {
 	Alarm *Duration `mapstructure:"alarm"`
 	// MinDuration drops spans shorter than this (span kinds only).
 	MinDuration Duration `mapstructure:"min_duration"`
-	// Weekdays and Months keep only the entries on these local dates
-	// ("mon".."sun", "jan".."dec"); empty keeps every date.
+	// Weekdays, Months and Dates keep only the entries on these local
+	// dates ("mon".."sun", "jan".."dec", "2027-06-12"); an empty list
+	// keeps every date.
 	Weekdays []string `mapstructure:"weekdays"`
 	Months   []string `mapstructure:"months"`
+	Dates    []string `mapstructure:"dates"`
 
 	// Lighting options (kind lighting:<duration> only).
 	Lamps      string `mapstructure:"lamps"`       // "evening" (default), "morning" or "both"

@@ -1262,7 +1262,7 @@ func alarmOf(a *config.Duration) *time.Duration {
 	return &d
 }
 
-// keep applies the date filters (weekdays, months) and min_duration of
+// keep applies the date filters (weekdays, months, dates) and min_duration of
 // spec to the entries es[from:] it produced, in place.
 func keep(es []Entry, from int, spec config.KindSpec) []Entry {
 	f, minLen := spec.Filter(), spec.MinDuration.D()

@@ -15,13 +15,13 @@ import (
 
 // `events --feed ID --format ics` over the feed's own window gives the same
 // bytes as the published file, for feeds with lighting, plans, filters and
-// per-entry alarms.
+// per-entry alarms (the weddings feed: kinds kept on listed dates).
 func TestEventsFeedICSEqualsPublished(t *testing.T) {
 	dir := t.TempDir()
 	if code, _, errOut := runCLI(t, "publish", "--out", dir); code != 0 {
 		t.Fatalf("publish: exit %d: %s", code, errOut)
 	}
-	for _, id := range []string{"fernhollow-lamps", "cairnmoor-twilight", "fernhollow-year", "skarvlia-evening"} {
+	for _, id := range []string{"fernhollow-lamps", "cairnmoor-twilight", "fernhollow-year", "skarvlia-evening", "skarvlia-weddings"} {
 		code, out, errOut := runCLI(t, "events", "--feed", id, "--format", "ics")
 		if code != 0 {
 			t.Fatalf("%s: exit %d: %s", id, code, errOut)

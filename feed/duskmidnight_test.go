@@ -157,3 +157,44 @@ func nearInstant(t time.Time, s string) bool {
 	}
 	return near(t, want, time.Second)
 }
+
+// A dawn's note speaks of the night before its date: on the last date
+// after nights without a dawn, whose own evening has its dusk after
+// midnight, it says that twilight lasted all last night and when this
+// evening's dusk comes, not that it "lasts all night" tonight; the dates
+// before keep the shared note. Instants from PyEphem 4.1 as in
+// TestDuskNoteFollowsTheEvening.
+func TestDawnNoteSpeaksOfLastNight(t *testing.T) {
+	s := site(t, "tromso", 69.65, 18.95, "Europe/Oslo")
+	s.Elevation = 120
+	for _, tc := range []struct {
+		kind, before, last, dusk, desc string
+	}{
+		// PyEphem: no −18° crossing the night of 16–17 September 2027 (the
+		// Sun's centre at −17°54′ at 22:38:58 UT on the 16th); setting
+		// 2027-09-17 22:00:57.658 UT
+		{"astronomical-dawn", "2027-09-16", "2027-09-17", "2027-09-17T22:00:57.658Z",
+			"The Sun's centre stayed less than 18° below the horizon all last night; this evening's astronomical dusk comes after midnight, at 00:00:58 CEST on Sat 18 Sep."},
+		// PyEphem: no −12° crossing the night of 31 August–1 September
+		// (−11°53′ at 22:44:27 UT on the 31st); setting 2027-09-01 22:07:53.182 UT
+		{"nautical-dawn", "2027-08-31", "2027-09-01", "2027-09-01T22:07:53.182Z",
+			"The Sun's centre stayed less than 12° below the horizon all last night; this evening's nautical dusk comes after midnight, at 00:07:53 CEST on Thu 2 Sep."},
+	} {
+		first, last := date(tc.before), date(tc.last)
+		_, notes, err := sky(t, tc.before, tc.last).EventsFor(context.Background(), PlaceOf(s), []config.KindSpec{{Kind: mustKinds(t, tc.kind)[0]}}, first, last)
+		if err != nil || len(notes) != 2 {
+			t.Fatalf("%s: notes %+v, %v; want two", tc.kind, notes, err)
+		}
+		want, _ := time.Parse(time.RFC3339Nano, tc.dusk)
+		if n := notes[1]; n.State != astro.AlwaysAbove || n.Dusk.Sub(want).Abs() > time.Second {
+			t.Errorf("%s %s: %+v; want always-above with this evening's dusk %s", tc.kind, tc.last, n, tc.dusk)
+		} else if title, desc := describeNote(newSiteInfo(s), n); !strings.HasPrefix(title, "No "+strings.TrimSuffix(tc.kind, "-dawn")+" dawn today: ") || desc != tc.desc {
+			t.Errorf("%s %s: %q\n%q\nwant %q", tc.kind, tc.last, title, desc, tc.desc)
+		}
+		if n := notes[0]; n.State != astro.AlwaysAbove || !n.Dusk.IsZero() {
+			t.Errorf("%s %s: %+v; want the night's note without a dusk", tc.kind, tc.before, n)
+		} else if title, _ := describeNote(newSiteInfo(s), n); !strings.Contains(title, "lasts all night") {
+			t.Errorf("%s %s: %q", tc.kind, tc.before, title)
+		}
+	}
+}

@@ -159,7 +159,9 @@ type Note struct {
 	Longest, Minimum time.Duration
 	// Dusk is, for a twilight's dusk note (state Crosses) of a date on
 	// which the Sun stays above the threshold until midnight, the dusk of
-	// that evening, after midnight on the next date; zero otherwise.
+	// that evening, after midnight on the next date; for a dawn's note
+	// (state AlwaysAbove) of the last date after a night without one, that
+	// evening's dusk likewise; zero otherwise.
 	Dusk time.Time
 }
 
@@ -1298,6 +1300,14 @@ func (c *collector) twilightEvents(k config.Kind, th *threshold, dir astro.Direc
 				if n.SunUp, err = c.sunStaysUp(starts[i+1], starts[i+2]); err != nil {
 					c.events = events
 					return err
+				}
+				if dir == astro.Rising && !n.SunUp {
+					// a dawn's note speaks of the night before the date:
+					// the evening may already have its dusk, after midnight
+					if n.Dusk, err = c.duskAfterMidnight(th, end, starts[i+2], starts[i+3]); err != nil {
+						c.events = events
+						return err
+					}
 				}
 			}
 		}

@@ -1232,6 +1232,13 @@ func describeNote(s *siteInfo, n Note) (string, string) {
 		case above && n.SunUp:
 			title = fmt.Sprintf("No %s dusk or dawn today: the Sun does not set", n.Family)
 			desc = "The Sun stays above the horizon all day and night"
+		case above && !n.Dusk.IsZero():
+			// the last date without a dawn: the night before had none,
+			// this evening has its dusk
+			loc := s.TimeZone.Location
+			title = fmt.Sprintf("No %s dawn today: %s twilight lasted all last night", n.Family, n.Family)
+			desc = fmt.Sprintf("The Sun's centre stayed less than %s below the horizon all last night; this evening's %s dusk comes after midnight, at %s on %s",
+				deg, n.Family, localClock(n.Dusk, loc), ToSecond(n.Dusk).In(loc).Format("Mon 2 Jan"))
 		case above:
 			title = fmt.Sprintf("No %s dusk or dawn tonight: %s twilight lasts all night", n.Family, n.Family)
 			desc = fmt.Sprintf("The Sun's centre stays less than %s below the horizon all night", deg)

@@ -172,18 +172,7 @@ func BenchmarkAdhocRequest(b *testing.B) {
 // a year fits; at 71.29° N with seven kinds it does not (290 days).
 // cpu-ms/op is the process's CPU time per request.
 func BenchmarkAdhocPreview(b *testing.B) {
-	set := func() adhocSettings { return adhocSettings{layout: newLayout(""), refresh: 24 * time.Hour} }
-	srv, err := serve.New(serve.Options{
-		Logger:            slog.New(slog.DiscardHandler),
-		Build:             func(context.Context) (*publish.Bundle, error) { return &publish.Bundle{}, nil },
-		Adhoc:             adhocFeedFrom(set),
-		Preview:           adhocCalendarFrom(set),
-		AdhocDefaultKinds: []string{"sunrise", "sunset", "civil-dawn", "civil-dusk"},
-	})
-	if err != nil {
-		b.Fatal(err)
-	}
-	h := srv.Handler()
+	h := previewServer(b, "sunrise", "sunset", "civil-dawn", "civil-dusk")
 	for _, c := range []struct{ name, query string }{
 		{"vienna", "lat=48.2&lon=16.4&tz=Europe/Vienna&start=2026-12-04"},
 		{"utqiagvik", "lat=71.29&lon=-156.8&kinds=sunrise,sunset,civil-dawn,civil-dusk,golden-hour,moonrise,moonset&start=2026-12-04"},
@@ -211,18 +200,7 @@ func BenchmarkAdhocPreview(b *testing.B) {
 // lamps are needed again, as the subscribed feed does: within the first
 // eight weeks (vienna) or only in the whole subscription (tromso).
 func BenchmarkPreviewLampsNote(b *testing.B) {
-	set := func() adhocSettings { return adhocSettings{layout: newLayout(""), refresh: 24 * time.Hour} }
-	srv, err := serve.New(serve.Options{
-		Logger:            slog.New(slog.DiscardHandler),
-		Build:             func(context.Context) (*publish.Bundle, error) { return &publish.Bundle{}, nil },
-		Adhoc:             adhocFeedFrom(set),
-		Preview:           adhocCalendarFrom(set),
-		AdhocDefaultKinds: []string{"sunrise", "sunset"},
-	})
-	if err != nil {
-		b.Fatal(err)
-	}
-	h := srv.Handler()
+	h := previewServer(b, "sunrise", "sunset")
 	for _, c := range []struct{ name, query string }{
 		{"vienna", "lat=48.2&lon=16.4&tz=Europe/Vienna&kinds=lighting:16h,sunrise,sunset&start=2027-06-20"},
 		{"tromso", "lat=69.65&lon=18.96&tz=Europe/Oslo&kinds=lighting:16h,sunrise,sunset&start=2027-05-20"},
@@ -271,4 +249,22 @@ func BenchmarkPublishDemo(b *testing.B) {
 			b.Fatalf("exit %d", code)
 		}
 	}
+}
+
+// previewServer is the handler of a server whose ad-hoc feeds and previews
+// (/at.ics, /at.json) are built as serve builds them, with kinds as their
+// default kinds, and which has no configured feeds.
+func previewServer(b *testing.B, kinds ...string) http.Handler {
+	set := func() adhocSettings { return adhocSettings{layout: newLayout(""), refresh: 24 * time.Hour} }
+	srv, err := serve.New(serve.Options{
+		Logger:            slog.New(slog.DiscardHandler),
+		Build:             func(context.Context) (*publish.Bundle, error) { return &publish.Bundle{}, nil },
+		Adhoc:             adhocFeedFrom(set),
+		Preview:           adhocCalendarFrom(set),
+		AdhocDefaultKinds: kinds,
+	})
+	if err != nil {
+		b.Fatal(err)
+	}
+	return srv.Handler()
 }

@@ -711,6 +711,15 @@ func (pl *Plan) validate(ps *problems, p string) {
 	case pl.For < 0 || pl.For > Duration(spanLimit):
 		ps.add(p+".for", pl.For.String(), "must be within 0..24h", `e.g. "3h"`)
 	}
+	// two clock times: an end not after the start is on the next day only
+	// before 12:00 (an end past midnight); one at or after 12:00 would leave
+	// the plan no time on any date
+	if start, err := ParseTimeSpec(pl.Start); err == nil && start.IsClock {
+		if end, err := ParseTimeSpec(pl.End); err == nil && end.IsClock && end.Clock <= start.Clock && end.Clock >= 12*time.Hour {
+			ps.add(p+".end", pl.End, fmt.Sprintf("is not after the start %q and not before 12:00, so the plan would never have a time (an end before 12:00 is on the next day)", pl.Start),
+				`e.g. end: "23:30", or for: 2h`)
+		}
+	}
 	checkFilter(ps, p, pl.Weekdays, pl.Months, nil)
 	checkAlarm(ps, p+".alarm", pl.Alarm)
 }

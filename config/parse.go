@@ -699,7 +699,7 @@ func rawAt(v any, path string) string {
 	case map[string]any, []any, nil:
 		return ""
 	}
-	return fmt.Sprint(v)
+	return showValue(v)
 }
 
 // keysAt lists the keys allowed at a decoder path such as "feeds[2].kinds[0]".
@@ -831,6 +831,16 @@ func quotedValue(v any) string {
 	return showValue(v)
 }
 
+// numberText writes a number read from a JSON file as JSON writes it:
+// 20270612 stays 20270612 (fmt would show 2.0270612e+07), and only the
+// very small or large take an exponent (encoding/json's rule).
+func numberText(x float64) string {
+	if a := math.Abs(x); a != 0 && (a < 1e-6 || a >= 1e21) {
+		return strconv.FormatFloat(x, 'g', -1, 64)
+	}
+	return strconv.FormatFloat(x, 'f', -1, 64)
+}
+
 func showValue(v any) string {
 	switch x := v.(type) {
 	case nil:
@@ -841,6 +851,8 @@ func showValue(v any) string {
 		return "[…]"
 	case map[string]any, map[any]any:
 		return "{…}"
+	case float64:
+		return numberText(x)
 	}
 	s := fmt.Sprint(v)
 	if len(s) > 80 {

@@ -99,3 +99,21 @@ func TestDateFilterDates(t *testing.T) {
 		t.Error("an empty dates list does not keep every date")
 	}
 }
+
+// TestDatesTOMLUnquotedNotADate: an unquoted TOML date that does not exist
+// is refused by the TOML parser itself; the error names the line, the key
+// and the value as written (2027-02-30 and 2027-02-29: February 2027 has
+// 28 days, Gregorian calendar; month 13 does not exist).
+func TestDatesTOMLUnquotedNotADate(t *testing.T) {
+	const head = "[[sites]]\nid = \"a\"\nlatitude = 47.5\nlongitude = 9.7\ntimezone = \"Europe/Zurich\"\n[[feeds]]\nid = \"f\"\nsite = \"a\"\n"
+	for doc, want := range map[string]string{
+		head + "[[feeds.kinds]]\nkind = \"sunset\"\ndates = [2027-06-12, 2027-02-30]\n": "line 11, column 22: dates: 2027-02-30: toml: impossible date",
+		head + "[[feeds.kinds]]\nkind = \"sunset\"\ndates = [2027-13-01]\n":             "line 11, column 10: dates: 2027-13-01: toml: impossible date",
+		head + "[[feeds.plans]]\ntitle = \"x\"\ndate = 2027-02-29\nstart = \"20:00\"\n": "line 11, column 8: date: 2027-02-29: toml: impossible date",
+	} {
+		_, err := Parse(strings.NewReader(doc), "toml")
+		if err == nil || !strings.HasSuffix(err.Error(), want) {
+			t.Errorf("%q: %v\nwant it to end %q", doc, err, want)
+		}
+	}
+}

@@ -245,7 +245,7 @@ func syntaxMessage(err error, data []byte) string {
 	switch {
 	case errors.As(err, &pos):
 		row, col := pos.Position()
-		msg = fmt.Sprintf("line %d, column %d: %s", row, col, msg)
+		msg = fmt.Sprintf("line %d, column %d: %s%s", row, col, tomlValueAt(data, row, col), msg)
 	case errors.As(err, &js):
 		off := min(int(js.Offset), len(data))
 		row := bytes.Count(data[:off], []byte("\n")) + 1
@@ -254,6 +254,30 @@ func syntaxMessage(err error, data []byte) string {
 		msg = yamlTabMessage(msg, data)
 	}
 	return msg
+}
+
+// tomlValueAt names the unquoted value (a date, a time or a number) that
+// the TOML decoder refused at line row, column col of data, and the key it
+// is given to when it is written on that line: "dates: 2027-02-30: " for
+// `dates = [2027-06-12, 2027-02-30]`; "" when no such value starts there.
+func tomlValueAt(data []byte, row, col int) string {
+	lines := bytes.Split(data, []byte("\n"))
+	if row < 1 || row > len(lines) || col < 1 || col > len(lines[row-1]) {
+		return ""
+	}
+	line := string(bytes.TrimRight(lines[row-1], "\r"))
+	if col > len(line) || line[col-1] < '0' || line[col-1] > '9' {
+		return ""
+	}
+	value := line[col-1:]
+	if i := strings.IndexAny(value, " \t,]}#"); i >= 0 {
+		value = value[:i]
+	}
+	key, _, ok := strings.Cut(line[:col-1], "=")
+	if key = strings.TrimSpace(key); !ok || key == "" || strings.ContainsAny(key, "[{\"'") {
+		return value + ": "
+	}
+	return key + ": " + value + ": "
 }
 
 // yamlTabMessage names the line of a tab in YAML's indentation: the YAML

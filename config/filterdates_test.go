@@ -117,3 +117,20 @@ func TestDatesTOMLUnquotedNotADate(t *testing.T) {
 		}
 	}
 }
+
+// TestTOMLTimeWhereTextBelongs: an unquoted TOML time or date and time
+// where text belongs (a plan's start, a dates list) is named in the file's
+// terms, not by the decoder's Go type (TOML v1.0.0: local time, local
+// date-time).
+func TestTOMLTimeWhereTextBelongs(t *testing.T) {
+	const head = "[[sites]]\nid = \"a\"\nlatitude = 47.5\nlongitude = 9.7\ntimezone = \"Europe/Zurich\"\n[[feeds]]\nid = \"f\"\nsite = \"a\"\n"
+	for doc, want := range map[string]string{
+		head + "[[feeds.plans]]\ntitle = \"x\"\ndate = \"every day\"\nstart = 20:00:00\n": "feeds[0].plans[0].start: 20:00:00: must be text, not a time of day (put the value in quotes)",
+		head + "[[feeds.kinds]]\nkind = \"sunset\"\ndates = [2027-06-12T10:00:00]\n":      "feeds[0].kinds[0].dates[0]: 2027-06-12T10:00:00: must be text, not a date and time (put the value in quotes)",
+	} {
+		_, err := Parse(strings.NewReader(doc), "toml")
+		if err == nil || !strings.Contains(err.Error(), want) {
+			t.Errorf("%q: %v\nwant it to contain %q", doc, err, want)
+		}
+	}
+}

@@ -807,6 +807,12 @@ func describeValue(v any) string {
 		return "a list"
 	case map[string]any, map[any]any:
 		return "a mapping"
+	case toml.LocalDate:
+		return "a date"
+	case toml.LocalTime:
+		return "a time of day"
+	case toml.LocalDateTime, time.Time: // TOML's, and YAML's timestamps
+		return "a date and time"
 	}
 	return fmt.Sprintf("a %T", v)
 }

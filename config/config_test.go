@@ -187,7 +187,7 @@ func TestValidationErrors(t *testing.T) {
 		{"plan-end-without-start.yaml", "feeds[0].plans[0].end", "23:00", "needs a start", "", 0},
 		{"plan-end-and-for.yaml", "feeds[0].plans[0].for", "3h", "either end or for", "", 0},
 		// an end before 12:00 is on the next day; one after noon that is not after the start never comes
-		{"plan-end-never.yaml", "feeds[0].plans[1].end", "18:00", `is not after the start "20:00" and not before 12:00`, `for: 2h`, 0},
+		{"plan-end-never.yaml", "feeds[0].plans[1].end", "18:00", `is not after the start "20:00" and not before 12:00`, `one before 12:00 for an end past midnight ("01:00"), or a length: for: 2h`, 0},
 		{"plan-no-title.yaml", "feeds[0].plans[0].title", "", "is required", "", 0},
 		{"bad-plan-month.yaml", "feeds[0].plans[0].months[0]", "juli", "not a month", `did you mean "jul"?`, 0},
 		{"bad-plan-alarm.yaml", "feeds[0].plans[0].alarm", "200h", "must be at most 7 days", "", 0},

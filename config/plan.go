@@ -716,8 +716,8 @@ func (pl *Plan) validate(ps *problems, p string) {
 	// the plan no time on any date
 	if start, err := ParseTimeSpec(pl.Start); err == nil && start.IsClock {
 		if end, err := ParseTimeSpec(pl.End); err == nil && end.IsClock && end.Clock <= start.Clock && end.Clock >= 12*time.Hour {
-			ps.add(p+".end", pl.End, fmt.Sprintf("is not after the start %q and not before 12:00, so the plan would never have a time (an end before 12:00 is on the next day)", pl.Start),
-				`e.g. end: "23:30", or for: 2h`)
+			ps.add(p+".end", pl.End, fmt.Sprintf("is not after the start %q and not before 12:00: the plan would never have a time", pl.Start),
+				`give an end after the start, one before 12:00 for an end past midnight ("01:00"), or a length: for: 2h`)
 		}
 	}
 	checkFilter(ps, p, pl.Weekdays, pl.Months, nil)

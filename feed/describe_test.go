@@ -421,8 +421,8 @@ func TestMoonMeaningsAndNotesOncePerCalendar(t *testing.T) {
 		got[e.Title] = e.Description
 	}
 	for title, desc := range map[string]string{
-		"Polar night: the Sun does not rise today":     "The Sun stays below the horizon all day.",
-		"No golden hour today: the Sun stays below it": "No golden hour today: the Sun stays below it.",
+		"Polar night: the Sun does not rise today":    "The Sun stays below the horizon all day.",
+		"No golden hour today: the Sun stays too low": "The Sun's centre stays below the golden hour's altitudes all day.",
 	} {
 		if got[title] != desc {
 			t.Errorf("10 November 2026 at 78.2° N: %q reads %q, want %q (all: %v)", title, got[title], desc, got)

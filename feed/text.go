@@ -1251,11 +1251,12 @@ func describeNote(s *siteInfo, n Note) (string, string) {
 		case "golden-hour", "blue-hour":
 			name := strings.ToLower(plainNames[n.Kind.Name])
 			if above {
-				title = fmt.Sprintf("No %s today: the Sun stays above it", name)
+				title = fmt.Sprintf("No %s today: the Sun stays too high", name)
+				desc = fmt.Sprintf("The Sun's centre stays above the %s's altitudes all day and night", name)
 			} else {
-				title = fmt.Sprintf("No %s today: the Sun stays below it", name)
+				title = fmt.Sprintf("No %s today: the Sun stays too low", name)
+				desc = fmt.Sprintf("The Sun's centre stays below the %s's altitudes all day", name)
 			}
-			desc = title
 		case config.KindSunBand: // the band's bounds as its spans' titles write them
 			if above {
 				title = "The Sun stays above " + signedDegrees(n.Kind.High) + " all day"

@@ -198,3 +198,27 @@ func TestDawnNoteSpeaksOfLastNight(t *testing.T) {
 		}
 	}
 }
+
+// A date whose only crossing is a dawn, its evening's dusk coming after
+// midnight, says when that dusk comes as the date without any crossing
+// does. At 69.65° N, 18.95° E, 120 m on 10 April 2027 (PyEphem 4.1, Sun's
+// centre, pressure 0, horizon −12°): nautical dusk 2027-04-09 21:49:40 UT
+// (the evening before, 23:49:40 CEST), dawn 2027-04-09 23:40:26 UT (01:40:26
+// CEST on the 10th), the evening's dusk 2027-04-10 22:11:06.589 UT.
+func TestDuskNoteAfterADawnGivesTheDusk(t *testing.T) {
+	s := site(t, "tromso", 69.65, 18.95, "Europe/Oslo")
+	s.Elevation = 120
+	_, notes, err := sky(t, "2027-04-10", "2027-04-10").EventsFor(context.Background(), PlaceOf(s),
+		[]config.KindSpec{{Kind: mustKinds(t, "nautical-dusk")[0]}}, date("2027-04-10"), date("2027-04-10"))
+	if err != nil || len(notes) != 1 {
+		t.Fatalf("notes %+v, %v; want one", notes, err)
+	}
+	want := time.Date(2027, 4, 10, 22, 11, 6, 589e6, time.UTC)
+	n := notes[0]
+	if n.State != astro.Crosses || n.Dusk.Sub(want).Abs() > time.Second {
+		t.Fatalf("%+v; want no-event with this evening's dusk %v", n, want)
+	}
+	if _, desc := describeNote(newSiteInfo(s), n); !strings.HasPrefix(desc, "No nautical dusk on this date: this evening's comes after midnight, at 00:11:0") || !strings.HasSuffix(desc, " CEST on Sun 11 Apr.") {
+		t.Errorf("%q", desc)
+	}
+}

@@ -157,8 +157,8 @@ type Note struct {
 	// the kind's min_duration (Minimum), the longest of them
 	// (noteUnderMinimum); zero for other notes.
 	Longest, Minimum time.Duration
-	// Dusk is, for a twilight's dusk note (state Crosses) of a date on
-	// which the Sun stays above the threshold until midnight, the dusk of
+	// Dusk is, for a twilight's dusk note (state Crosses) of a date
+	// without a dusk of its own (no crossing, or a dawn only), the dusk of
 	// that evening, after midnight on the next date; for a dawn's note
 	// (state AlwaysAbove) of the last date after a night without one, that
 	// evening's dusk likewise; zero otherwise.
@@ -1278,8 +1278,9 @@ func (c *collector) twilightEvents(k config.Kind, th *threshold, dir astro.Direc
 		}
 		if lo < end && (!evening || !dusk.IsZero()) {
 			// crossed the other way only: the event passed to a
-			// neighbouring date (noteSilent's note)
-			c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.Crosses, Family: "no-event:" + k.String()})
+			// neighbouring date (noteSilent's note); a dusk's note says
+			// when this evening's comes, after midnight
+			c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.Crosses, Family: "no-event:" + k.String(), Dusk: dusk})
 			continue
 		}
 		if !dusk.IsZero() {

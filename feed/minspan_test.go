@@ -166,3 +166,34 @@ func TestMinDurationInCalendarDescription(t *testing.T) {
 		t.Errorf("a kind without min_duration is said to leave spans out:\n%s", cal.Description)
 	}
 }
+
+// The calendar's description says on which dates the filters keep a kind's
+// entries, kinds with the same filters named together, weekdays from Monday
+// and months in the calendar's order (the Gregorian calendar), dates as
+// written out.
+func TestFiltersInCalendarDescription(t *testing.T) {
+	s := site(t, "venue", 47.5, 9.7, "Europe/Zurich")
+	sk := sky(t, "2027-06-12", "2027-06-12")
+	dates := []string{"2027-08-21", "2027-06-12"}
+	f := &config.Feed{ID: "f", Site: s.ID, Kinds: []config.KindSpec{
+		{Kind: mustKinds(t, "golden-hour")[0], Dates: dates},
+		{Kind: mustKinds(t, "sunset")[0], Dates: dates},
+		{Kind: mustKinds(t, "sun-altitude:-3")[0], Weekdays: []string{"sat", "Friday"}, Months: []string{"dec", "jan"}},
+		{Kind: mustKinds(t, "sunrise")[0]},
+	}}
+	cal, err := sk.Calendar(context.Background(), s, f, date("2027-06-12"), date("2027-06-12"), Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{
+		"\nGolden hour and sunset: only on 12 June 2027 and 21 August 2027.\n",
+		"\nSun at −3°: only on Fridays and Saturdays, in January and December.\n",
+	} {
+		if strings.Count(cal.Description, want) != 1 {
+			t.Errorf("the description does not say once %q:\n%s", want, cal.Description)
+		}
+	}
+	if strings.Contains(cal.Description, "Sunrise: only") {
+		t.Errorf("a kind without filters is said to be filtered:\n%s", cal.Description)
+	}
+}

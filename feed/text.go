@@ -569,7 +569,15 @@ func kindMeanings(s *config.Site, specs []config.KindSpec) []string {
 			out = append(out, m)
 		}
 	}
+	var filters, filterKinds []string // the filters' phrases, and the kinds of each
 	for _, spec := range specs {
+		if name, m := filterMeaning(spec); m != "" {
+			if i := slices.Index(filters, m); i >= 0 {
+				filterKinds[i] += "\x00" + strings.ToLower(name[:1]) + name[1:]
+			} else {
+				filters, filterKinds = append(filters, m), append(filterKinds, name)
+			}
+		}
 		if spec.Kind.Name == config.KindLighting {
 			add(lightingMeaning(s, spec))
 			lighting, civilLight = true, civilLight || spec.Natural == config.NaturalCivil
@@ -603,6 +611,9 @@ func kindMeanings(s *config.Site, specs []config.KindSpec) []string {
 	if len(thresholds) > 0 {
 		out = append(out, photoperiodMeaning(s, thresholds))
 	}
+	for i, m := range filters { // "Golden hour, blue hour and sunset: only on …"
+		out = append(out, andList(strings.Split(filterKinds[i], "\x00"))+": only "+m+".")
+	}
 	if azimuth {
 		out = append(out, azimuthMeaning)
 	}
@@ -613,6 +624,83 @@ func kindMeanings(s *config.Site, specs []config.KindSpec) []string {
 		out = append(out, lightingAdvice)
 	}
 	return out
+}
+
+// filterMeaning says on which dates the weekdays, months and dates filters
+// of a kinds entry keep its entries, which a subscriber does not see
+// otherwise: the kind's name and "on Fridays and Saturdays, in June, July
+// and August" ("" without filters).
+func filterMeaning(spec config.KindSpec) (name, phrase string) {
+	var days [7]bool
+	var months [13]bool
+	for _, w := range spec.Weekdays {
+		if d, ok := config.ParseWeekday(w); ok {
+			days[d] = true
+		}
+	}
+	for _, m := range spec.Months {
+		if mm, ok := config.ParseMonth(m); ok {
+			months[mm] = true
+		}
+	}
+	var parts, names []string
+	for i := range 7 {
+		if d := time.Weekday((i + 1) % 7); days[d] { // Monday first
+			names = append(names, d.String()+"s")
+		}
+	}
+	if len(names) > 0 {
+		parts = append(parts, "on "+andList(names))
+	}
+	names = nil
+	for m := time.January; m <= time.December; m++ {
+		if months[m] {
+			names = append(names, m.String())
+		}
+	}
+	if len(names) > 0 {
+		parts = append(parts, "in "+andList(names))
+	}
+	var dates []time.Time
+	for _, d := range spec.Dates {
+		if t, err := config.ParseListedDate(d); err == nil {
+			dates = append(dates, t)
+		}
+	}
+	if len(dates) > 0 {
+		slices.SortFunc(dates, time.Time.Compare)
+		names = nil
+		for _, d := range dates {
+			names = append(names, d.Format("2 January 2006"))
+		}
+		parts = append(parts, "on "+andList(names))
+	}
+	if len(parts) == 0 {
+		return "", ""
+	}
+	k := spec.Kind
+	switch name = plainNames[k.Name]; k.Name {
+	case "sun-altitude":
+		name = "Sun at " + signedDegrees(k.Altitude)
+	case config.KindSunBand:
+		name = bandBase(k.Altitude, k.High)
+	case config.KindLighting:
+		name = "Lamps to " + amount(k.DayLength)
+	case "photoperiod":
+		name = "Day length " + amount(k.DayLength)
+	}
+	if name == "" {
+		name = k.String()
+	}
+	return name, strings.Join(parts, ", ")
+}
+
+// andList joins words as a sentence lists them: "a", "a and b", "a, b and c".
+func andList(words []string) string {
+	if len(words) < 2 {
+		return strings.Join(words, "")
+	}
+	return strings.Join(words[:len(words)-1], ", ") + " and " + words[len(words)-1]
 }
 
 // minDurationMeaning says, once in the calendar's description, that the

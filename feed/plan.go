@@ -1177,13 +1177,21 @@ func inText(k config.Kind) string {
 	return strings.ToLower(n[:1]) + n[1:]
 }
 
-// plainName is a kind's name in words: "New moon", "Sunset", "Day length 12 h".
+// plainName is a kind's name in words: "New moon", "Sunset", "day length
+// crossing 12 h", "Sun at −3°", "Sun between +2° and +12°", "Lamps to 16 h".
 func plainName(k config.Kind) string {
 	if n, ok := plainNames[k.Name]; ok {
 		return n
 	}
-	if k.Name == config.KindPhotoperiod {
+	switch k.Name {
+	case config.KindPhotoperiod:
 		return "day length crossing " + amount(k.DayLength)
+	case "sun-altitude":
+		return "Sun at " + signedDegrees(k.Altitude)
+	case config.KindSunBand:
+		return bandBase(k.Altitude, k.High)
+	case config.KindLighting:
+		return "Lamps to " + amount(k.DayLength)
 	}
 	return k.String()
 }

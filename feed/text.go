@@ -678,21 +678,8 @@ func filterMeaning(spec config.KindSpec) (name, phrase string) {
 	if len(parts) == 0 {
 		return "", ""
 	}
-	k := spec.Kind
-	switch name = plainNames[k.Name]; k.Name {
-	case "sun-altitude":
-		name = "Sun at " + signedDegrees(k.Altitude)
-	case config.KindSunBand:
-		name = bandBase(k.Altitude, k.High)
-	case config.KindLighting:
-		name = "Lamps to " + amount(k.DayLength)
-	case "photoperiod":
-		name = "Day length " + amount(k.DayLength)
-	}
-	if name == "" {
-		name = k.String()
-	}
-	return name, strings.Join(parts, ", ")
+	name = plainName(spec.Kind)
+	return strings.ToUpper(name[:1]) + name[1:], strings.Join(parts, ", ")
 }
 
 // andList joins words as a sentence lists them: "a", "a and b", "a, b and c".
@@ -712,10 +699,8 @@ func minDurationMeaning(k config.Kind, d time.Duration) string {
 		return ""
 	}
 	switch k.Name {
-	case "golden-hour", "blue-hour":
-		return fmt.Sprintf("%s: spans under %s are left out; a date that has only shorter ones gets a note saying so.", plainNames[k.Name], amount(d))
-	case config.KindSunBand:
-		return fmt.Sprintf("%s: spans under %s are left out; a date that has only shorter ones gets a note saying so.", bandBase(k.Altitude, k.High), amount(d))
+	case "golden-hour", "blue-hour", config.KindSunBand:
+		return fmt.Sprintf("%s: spans under %s are left out; a date that has only shorter ones gets a note saying so.", plainName(k), amount(d))
 	case "dark-window":
 		return fmt.Sprintf("Dark sky: windows under %s are left out; a night that has only shorter ones gets a note saying so.", amount(d))
 	case "solar-eclipse", "lunar-eclipse":

@@ -287,9 +287,8 @@ type kindTimes struct {
 	sun    *threshold
 	next   int // sun: the first crossing at or after the start of the date last looked up
 	byDate map[time.Time]dayCrossings
-	noons  map[time.Time]time.Time // an evening kind's: the dates' solar noons looked up (noon)
-	c      *collector              // the place, the ephemeris and the dates' midnights
-	alt    float64                 // the altitude (skylineKey: the skyline)
+	c      *collector // the place, the ephemeris and the dates' midnights
+	alt    float64    // the altitude (skylineKey: the skyline)
 	dir    astro.Direction
 	family string
 	kind   config.Kind
@@ -523,29 +522,8 @@ func (kt *kindTimes) ofEvening(d time.Time) (time.Time, bool, error) {
 }
 
 // noon returns the Sun's upper transit (solar noon) on the local date d,
-// or the local noon when the date has none, each date found once.
-func (kt *kindTimes) noon(d time.Time) (time.Time, error) {
-	if t, ok := kt.noons[d]; ok {
-		return t, nil
-	}
-	c := kt.c
-	start, end := c.bounds(d)
-	ts, err := c.sky.eph.SunTransits(c.p.Observer, start, end)
-	if err != nil {
-		return time.Time{}, err
-	}
-	var t time.Time
-	if len(ts) > 0 {
-		t = ts[0].Time
-	} else {
-		t = clockOn(d, 12*time.Hour, c.p.Location)
-	}
-	if kt.noons == nil {
-		kt.noons = map[time.Time]time.Time{}
-	}
-	kt.noons[d] = t
-	return t, nil
-}
+// or the local noon when the date has none (collector.solarNoon).
+func (kt *kindTimes) noon(d time.Time) (time.Time, error) { return kt.c.solarNoon(d) }
 
 // note returns the note of a date without the kind's event, when there is one.
 func (kt *kindTimes) note(d time.Time) (Note, bool) {

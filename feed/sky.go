@@ -803,6 +803,7 @@ type collector struct {
 
 	transits    []astro.Transit             // the Sun's transits over first-1..last, computed once (sunTransits)
 	noonsByDate map[time.Time]astro.Transit // the same by local date (noonOf)
+	noonAlone   map[time.Time]time.Time     // dates' solar noons searched one by one (solarNoon)
 	zc          *zoneCache                  // see zone
 	si          *siteInfo                   // see siteInfo
 }
@@ -1271,7 +1272,7 @@ func (c *collector) twilightEvents(k config.Kind, th *threshold, dir astro.Direc
 		var dusk time.Time
 		if evening {
 			var err error
-			if dusk, err = c.duskAfterMidnight(th, end, starts[i+2], starts[i+3]); err != nil {
+			if dusk, err = c.duskAfterMidnight(th, end, d); err != nil {
 				c.events = events
 				return err
 			}
@@ -1305,7 +1306,7 @@ func (c *collector) twilightEvents(k config.Kind, th *threshold, dir astro.Direc
 				if dir == astro.Rising && !n.SunUp {
 					// a dawn's note speaks of the night before the date:
 					// the evening may already have its dusk, after midnight
-					if n.Dusk, err = c.duskAfterMidnight(th, end, starts[i+2], starts[i+3]); err != nil {
+					if n.Dusk, err = c.duskAfterMidnight(th, end, d); err != nil {
 						c.events = events
 						return err
 					}
@@ -1318,22 +1319,46 @@ func (c *collector) twilightEvents(k config.Kind, th *threshold, dir astro.Direc
 	return nil
 }
 
-// duskAfterMidnight returns the dusk of a date's evening that comes after
-// midnight: the crossing th.xs[next] (the first after the date) when it is
-// a setting one before the solar noon of the next date, which begins at
-// from and ends at to; zero when there is none. At 69.65° N, 18.95° E on
-// 17 September 2027 the astronomical dusk comes at 00:00:58 CEST on the
-// 18th, after a summer of nights without one.
-func (c *collector) duskAfterMidnight(th *threshold, next int, from, to time.Time) (time.Time, error) {
-	if next >= len(th.xs) || th.xs[next].Direction != astro.Setting || !th.xs[next].Time.Before(to) {
+// duskAfterMidnight returns the dusk of the date d's evening that comes
+// after midnight: the crossing th.xs[next] (the first after the date) when
+// it is a setting one before the solar noon of the next date; zero when
+// there is none. At 69.65° N, 18.95° E on 17 September 2027 the
+// astronomical dusk comes at 00:00:58 CEST on the 18th, after a summer of
+// nights without one.
+func (c *collector) duskAfterMidnight(th *threshold, next int, d time.Time) (time.Time, error) {
+	if next >= len(th.xs) || th.xs[next].Direction != astro.Setting {
 		return time.Time{}, nil
 	}
-	x := th.xs[next].Time
-	ts, err := c.sky.eph.AppendSunTransits(nil, c.p.Observer, from, to)
-	if err != nil || len(ts) == 0 || !x.Before(ts[0].Time) {
+	noon, err := c.solarNoon(d.AddDate(0, 0, 1))
+	if err != nil || !th.xs[next].Time.Before(noon) {
 		return time.Time{}, err
 	}
-	return x, nil
+	return th.xs[next].Time, nil
+}
+
+// solarNoon returns the Sun's upper transit on the local date d (any date
+// the Sky serves), or the local noon when the date has none, each date
+// searched alone and once: a plan's evening events and the twilight notes
+// at the edges of the white nights need the noons of a few dates, for
+// which noonOf's transits of every date would cost more.
+func (c *collector) solarNoon(d time.Time) (time.Time, error) {
+	if t, ok := c.noonAlone[d]; ok {
+		return t, nil
+	}
+	start, end := c.bounds(d)
+	ts, err := c.sky.eph.SunTransits(c.p.Observer, start, end)
+	if err != nil {
+		return time.Time{}, err
+	}
+	t := clockOn(d, 12*time.Hour, c.p.Location)
+	if len(ts) > 0 {
+		t = ts[0].Time
+	}
+	if c.noonAlone == nil {
+		c.noonAlone = map[time.Time]time.Time{}
+	}
+	c.noonAlone[d] = t
+	return t, nil
 }
 
 // dateCrossings returns where each date's crossings of th begin in th.xs

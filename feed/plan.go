@@ -865,10 +865,7 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 					} else {
 						en.Title += " (" + at.Format("15:04") + ")"
 					}
-					b = z.appendClock(append(b, "at "...), start)
-					if sd := z.date(start); sd.After(d) {
-						b = append(sd.AppendFormat(append(b, " the next day ("...), "Mon 2 Jan"), ')')
-					}
+					b = appendOtherDay(z.appendClock(append(b, "at "...), start), z.date(start), d)
 					b = append(b, ", "...)
 				}
 				en.Title += " comes after the end, " + et

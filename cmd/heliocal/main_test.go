@@ -29,6 +29,19 @@ func runCLI(t *testing.T, args ...string) (int, string, string) {
 	return code, out.String(), errOut.String()
 }
 
+// runJSON runs the command, which must succeed, and decodes its JSON output
+// into v.
+func runJSON(t *testing.T, v any, args ...string) {
+	t.Helper()
+	code, out, errOut := runCLI(t, args...)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	if err := json.Unmarshal([]byte(out), v); err != nil {
+		t.Fatal(err)
+	}
+}
+
 // The events table of a demo site over a fixed week is compared with a
 // golden file; regenerate with `go test ./cmd/heliocal -update` and review
 // the diff.
@@ -71,19 +84,13 @@ func TestEventsTableGolden(t *testing.T) {
 // The JSON form: one object per event with kind and an RFC 3339 UTC start,
 // sorted by time; spans have an end; custom thresholds have a direction.
 func TestEventsJSON(t *testing.T) {
-	code, out, errOut := runCLI(t, "events", "--lat", "48.2", "--lon", "16.4", "--elev", "180", "--tz", "Europe/Vienna",
-		"--from", "2027-01-01", "--to", "2027-01-10", "--kinds", "sunrise,sunset,golden-hour,sun-altitude:10,perihelion", "--format", "json")
-	if code != 0 {
-		t.Fatalf("exit %d: %s", code, errOut)
-	}
 	var doc struct {
 		Events []struct {
 			Kind, Start, End, Direction string
 		}
 	}
-	if err := json.Unmarshal([]byte(out), &doc); err != nil {
-		t.Fatal(err)
-	}
+	runJSON(t, &doc, "events", "--lat", "48.2", "--lon", "16.4", "--elev", "180", "--tz", "Europe/Vienna",
+		"--from", "2027-01-01", "--to", "2027-01-10", "--kinds", "sunrise,sunset,golden-hour,sun-altitude:10,perihelion", "--format", "json")
 	// 10 days × (sunrise + sunset + 2 golden hours + 2 crossings of 10°) + perihelion
 	if len(doc.Events) != 61 {
 		t.Errorf("%d events, want 61", len(doc.Events))
@@ -120,19 +127,13 @@ func TestEventsJSON(t *testing.T) {
 func TestEventsAzimuth(t *testing.T) {
 	args := []string{"events", "--lat", "48.2", "--lon", "16.4", "--tz", "Europe/Vienna",
 		"--from", "2027-06-21", "--to", "2027-06-21", "--kinds", "sunrise,sunset,moonrise,moonset,solar-noon"}
-	code, out, errOut := runCLI(t, append(args, "--format", "json")...)
-	if code != 0 {
-		t.Fatalf("exit %d: %s", code, errOut)
-	}
 	var doc struct {
 		Events []struct {
 			Kind    string
 			Azimuth *float64 `json:"azimuth_deg"`
 		}
 	}
-	if err := json.Unmarshal([]byte(out), &doc); err != nil {
-		t.Fatal(err)
-	}
+	runJSON(t, &doc, append(args, "--format", "json")...)
 	want := map[string]float64{"sunrise": 52.2, "sunset": 307.8}
 	seen := 0
 	for _, e := range doc.Events {
@@ -157,7 +158,7 @@ func TestEventsAzimuth(t *testing.T) {
 	if seen != 2 {
 		t.Errorf("%d of sunrise and sunset found", seen)
 	}
-	code, out, errOut = runCLI(t, append(args, "--format", "csv")...)
+	code, out, errOut := runCLI(t, append(args, "--format", "csv")...)
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, errOut)
 	}
@@ -368,10 +369,6 @@ func TestPublishStartLineCountsShard(t *testing.T) {
 func TestEventsSunsetEndingMidnightSun(t *testing.T) {
 	args := []string{"events", "--lat", "78.92", "--lon", "11.93", "--tz", "Arctic/Longyearbyen",
 		"--from", "2027-08-27", "--to", "2027-08-27", "--kinds", "sunrise,sunset"}
-	code, out, errOut := runCLI(t, append(args, "--format", "json")...)
-	if code != 0 {
-		t.Fatalf("exit %d: %s", code, errOut)
-	}
 	var doc struct {
 		Events []struct {
 			Kind      string
@@ -379,16 +376,14 @@ func TestEventsSunsetEndingMidnightSun(t *testing.T) {
 			DayLength *float64 `json:"day_length_s"`
 		}
 	}
-	if err := json.Unmarshal([]byte(out), &doc); err != nil {
-		t.Fatal(err)
-	}
+	runJSON(t, &doc, append(args, "--format", "json")...)
 	if len(doc.Events) != 2 || doc.Events[0].Kind != "sunset" || !strings.HasPrefix(doc.Events[0].Start, "2027-08-26T22:59:39") {
 		t.Fatalf("events %+v: want the sunset at 22:59:39 UT, then the sunrise", doc.Events)
 	}
 	if set, rise := doc.Events[0], doc.Events[1]; set.DayLength != nil || rise.DayLength == nil {
 		t.Errorf("JSON: the sunset's day_length_s %v, the sunrise's %v; want none, then the day's", set.DayLength, rise.DayLength)
 	}
-	code, out, errOut = runCLI(t, append(args, "--format", "csv")...)
+	code, out, errOut := runCLI(t, append(args, "--format", "csv")...)
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, errOut)
 	}
@@ -418,19 +413,13 @@ feeds:
     site: isfjell
     kinds: [sunrise, sunset]
 `)
-	code, out, errOut = runCLI(t, "events", "--config", cfg, "--feed", "isfjell-sun", "--from", "2027-08-27", "--to", "2027-08-27", "--format", "json")
-	if code != 0 {
-		t.Fatalf("exit %d: %s", code, errOut)
-	}
 	var entries struct {
 		Entries []struct {
 			Kind      string
 			DayLength *float64 `json:"day_length_s"`
 		}
 	}
-	if err := json.Unmarshal([]byte(out), &entries); err != nil {
-		t.Fatal(err)
-	}
+	runJSON(t, &entries, "events", "--config", cfg, "--feed", "isfjell-sun", "--from", "2027-08-27", "--to", "2027-08-27", "--format", "json")
 	if es := entries.Entries; len(es) != 2 || es[0].Kind != "sunset" || es[0].DayLength != nil || es[1].DayLength == nil {
 		t.Errorf("--feed JSON %+v: want the sunset without day_length_s, then the sunrise with it", es)
 	}

@@ -31,6 +31,24 @@ func planEntries(t *testing.T, s *config.Site, first, last string, plans ...conf
 	return es
 }
 
+// entryOn returns the one entry of es on the local date day (YYYY-MM-DD).
+func entryOn(t *testing.T, es []Entry, day string) *Entry {
+	t.Helper()
+	var e *Entry
+	for i, x := range es {
+		if x.Date.Format(time.DateOnly) == day {
+			if e != nil {
+				t.Fatalf("two entries on %s", day)
+			}
+			e = &es[i]
+		}
+	}
+	if e == nil {
+		t.Fatalf("no entry on %s: %s", day, dates(es))
+	}
+	return e
+}
+
 func dates(es []Entry) string {
 	var out []string
 	for _, e := range es {
@@ -317,15 +335,7 @@ func TestPlanClockSkippedEnd(t *testing.T) {
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			es := planEntries(t, s, "2027-03-13", "2027-03-15", config.Plan{Title: "Night check", Date: "every day", Start: c.start, End: c.end})
-			var e *Entry
-			for i, x := range es {
-				if x.Date.Format(time.DateOnly) == c.date {
-					e = &es[i]
-				}
-			}
-			if e == nil {
-				t.Fatalf("no entry on %s", c.date)
-			}
+			e := entryOn(t, es, c.date)
 			if !strings.Contains(e.Description, c.text) {
 				t.Errorf("description\n%s\nwant %q", e.Description, c.text)
 			}
@@ -354,40 +364,47 @@ func TestPlanClockSkippedEnd(t *testing.T) {
 //   - Europe/London, Rule EU 1981 max - Mar lastSun 1:00u 1:00 S: 01:00 GMT
 //     to 02:00 BST on Sunday 28 March 2027 (a skip not at midnight).
 func TestPlanClockSkippedSaidOnce(t *testing.T) {
-	for _, c := range []struct {
-		name, zone    string
+	type clockChange struct {
+		zone          string
 		lat, lon      float64
 		change        string // a UTC instant of the change, from the tz database
 		before, after int    // the offsets around it, in hours
-		start, end    string
-		date          string // the plan's date
-		from, to      string // UTC
-		text          string // the description
+	}
+	beirut := clockChange{"Asia/Beirut", 33.89, 35.50, "2027-03-27T22:00:00Z", 2, 3}
+	santiago := clockChange{"America/Santiago", -33.45, -70.67, "2026-09-06T04:00:00Z", -4, -3}
+	london := clockChange{"Europe/London", 51.51, -0.13, "2027-03-28T01:00:00Z", 0, 1}
+	for _, c := range []struct {
+		name string
+		clockChange
+		start, end string
+		date       string // the plan's date
+		from, to   string // UTC
+		text       string // the description
 	}{
-		{"Beirut, astronomical dusk to an end skipped the next day", "Asia/Beirut", 33.89, 35.50, "2027-03-27T22:00:00Z", 2, 3,
+		{"Beirut, astronomical dusk to an end skipped the next day", beirut,
 			"astronomical-dusk", "00:30", "2027-03-27", "", "2027-03-27T22:30:00Z",
 			" to 01:30:00 EEST the next day (Sun 28 Mar; moved from 00:30, which the clocks skip: they go forward for summer time by 1 h).\n"},
-		{"Beirut, midnight check", "Asia/Beirut", 33.89, 35.50, "2027-03-27T22:00:00Z", 2, 3,
+		{"Beirut, midnight check", beirut,
 			"00:00", "00:45", "2027-03-28", "2027-03-27T22:00:00Z", "2027-03-27T22:45:00Z",
 			"From 01:00:00 EEST to 01:45:00 EEST (both moved by 1 h from 00:00 and 00:45: the clocks skip 00:00–01:00 on Sun 28 Mar 2027 for summer time)."},
-		{"Santiago, an end skipped the next day", "America/Santiago", -33.45, -70.67, "2026-09-06T04:00:00Z", -4, -3,
+		{"Santiago, an end skipped the next day", santiago,
 			"23:30", "00:30", "2026-09-05", "2026-09-06T03:30:00Z", "2026-09-06T04:30:00Z",
 			"From 23:30:00 UTC−04 to 01:30:00 UTC−03 the next day (Sun 6 Sep; moved from 00:30, which the clocks skip: they go forward for summer time by 1 h)."},
-		{"Santiago, midnight check", "America/Santiago", -33.45, -70.67, "2026-09-06T04:00:00Z", -4, -3,
+		{"Santiago, midnight check", santiago,
 			"00:00", "00:45", "2026-09-06", "2026-09-06T04:00:00Z", "2026-09-06T04:45:00Z",
 			"From 01:00:00 UTC−03 to 01:45:00 UTC−03 (both moved by 1 h from 00:00 and 00:45: the clocks skip 00:00–01:00 on Sun 6 Sep 2026 for summer time)."},
-		{"London, both in the skipped hour", "Europe/London", 51.51, -0.13, "2027-03-28T01:00:00Z", 0, 1,
+		{"London, both in the skipped hour", london,
 			"01:15", "01:45", "2027-03-28", "2027-03-28T01:15:00Z", "2027-03-28T01:45:00Z",
 			"From 02:15:00 BST to 02:45:00 BST (both moved by 1 h from 01:15 and 01:45: the clocks skip 01:00–02:00 on Sun 28 Mar 2027 for summer time)."},
-		{"London, an end skipped the next day", "Europe/London", 51.51, -0.13, "2027-03-28T01:00:00Z", 0, 1,
+		{"London, an end skipped the next day", london,
 			"23:00", "01:30", "2027-03-27", "2027-03-27T23:00:00Z", "2027-03-28T01:30:00Z",
 			"From 23:00:00 GMT to 02:30:00 BST the next day (Sun 28 Mar; moved from 01:30, which the clocks skip: they go forward for summer time by 1 h)."},
 		// the start past midnight names the date; the end's move does not
 		// name it again
-		{"London, a start past midnight and an end skipped", "Europe/London", 51.51, -0.13, "2027-03-28T01:00:00Z", 0, 1,
+		{"London, a start past midnight and an end skipped", london,
 			"sunset+6h", "01:30", "2027-03-27", "", "2027-03-28T01:30:00Z",
 			" (6 h after sunset) the next day (Sun 28 Mar) to 02:30:00 BST (moved from 01:30, which the clocks skip: they go forward for summer time by 1 h).\n"},
-		{"London, the start alone skipped", "Europe/London", 51.51, -0.13, "2027-03-28T01:00:00Z", 0, 1,
+		{"London, the start alone skipped", london,
 			"01:30", "03:00", "2027-03-28", "2027-03-28T01:30:00Z", "2027-03-28T02:00:00Z",
 			"From 02:30:00 BST (moved from 01:30, which the clocks skip on Sun 28 Mar 2027: the clocks go forward for summer time by 1 h) to 03:00:00 BST."},
 	} {
@@ -600,15 +617,7 @@ func TestPlanEndFirstAfterStart(t *testing.T) {
 			"2027-09-09T19:19:49Z", "", false, "; no civil dusk that day or the next to end it."},
 	} {
 		t.Run(c.name, func(t *testing.T) {
-			var e *Entry
-			for _, x := range planEntries(t, c.s, c.first, c.last, c.plan) {
-				if x.Date.Format(time.DateOnly) == c.date {
-					e = &x
-				}
-			}
-			if e == nil {
-				t.Fatalf("no entry on %s", c.date)
-			}
+			e := entryOn(t, planEntries(t, c.s, c.first, c.last, c.plan), c.date)
 			start, _ := time.Parse(time.RFC3339, c.start)
 			if !near(e.Start, start, 3*time.Second) {
 				t.Errorf("start %s, want %s (PyEphem)", e.Start.UTC(), start)
@@ -681,19 +690,7 @@ func TestPlanEveningStart(t *testing.T) {
 			"From 00:17:31 CEST (sunset) the next day (Fri 16 Apr)"},
 	} {
 		t.Run(c.name, func(t *testing.T) {
-			es := planEntries(t, c.s, c.first, c.last, c.plan)
-			var e *Entry
-			for i, x := range es {
-				if x.Date.Format(time.DateOnly) == c.date {
-					if e != nil {
-						t.Fatalf("two entries on %s", c.date)
-					}
-					e = &es[i]
-				}
-			}
-			if e == nil {
-				t.Fatalf("no entry on %s: %s", c.date, dates(es))
-			}
+			e := entryOn(t, planEntries(t, c.s, c.first, c.last, c.plan), c.date)
 			if c.start == "" {
 				if !e.AllDay || e.Facts.Missing != c.plan.Start || !strings.HasSuffix(e.Title, ": no "+inText(config.Kind{Name: c.plan.Start})+" today") {
 					t.Errorf("%+v, want the date's all-day note", e)
@@ -837,16 +834,7 @@ func TestPlanEndClockPassed(t *testing.T) {
 		// refused by the configuration's check (plan-end-never.yaml)
 	} {
 		t.Run(c.name, func(t *testing.T) {
-			es := planEntries(t, glen, "2027-04-24", "2027-05-01", c.plan)
-			var e *Entry
-			for i, x := range es {
-				if x.Date.Format(time.DateOnly) == c.date {
-					e = &es[i]
-				}
-			}
-			if e == nil {
-				t.Fatalf("no entry on %s: %s", c.date, dates(es))
-			}
+			e := entryOn(t, planEntries(t, glen, "2027-04-24", "2027-05-01", c.plan), c.date)
 			if e.Title != c.title || !strings.Contains(e.Description, c.text) {
 				t.Errorf("%q\n%s\nwant %q and %q", e.Title, e.Description, c.title, c.text)
 			}

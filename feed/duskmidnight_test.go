@@ -158,6 +158,17 @@ func nearInstant(t time.Time, s string) bool {
 	return near(t, want, time.Second)
 }
 
+// notesOf returns the notes of the kind at s on the dates first to last
+// (YYYY-MM-DD).
+func notesOf(t *testing.T, s *config.Site, kind, first, last string) []Note {
+	t.Helper()
+	_, notes, err := sky(t, first, last).EventsFor(context.Background(), PlaceOf(s), []config.KindSpec{{Kind: mustKinds(t, kind)[0]}}, date(first), date(last))
+	if err != nil {
+		t.Fatalf("%s: %v", kind, err)
+	}
+	return notes
+}
+
 // A dawn's note speaks of the night before its date: on the last date
 // after nights without a dawn, whose own evening has its dusk after
 // midnight, it says that twilight lasted all last night and when this
@@ -180,13 +191,11 @@ func TestDawnNoteSpeaksOfLastNight(t *testing.T) {
 		{"nautical-dawn", "2027-08-31", "2027-09-01", "2027-09-01T22:07:53.182Z",
 			"The Sun's centre stayed less than 12° below the horizon all last night; this evening's nautical dusk comes after midnight, at 00:07:53 CEST on Thu 2 Sep."},
 	} {
-		first, last := date(tc.before), date(tc.last)
-		_, notes, err := sky(t, tc.before, tc.last).EventsFor(context.Background(), PlaceOf(s), []config.KindSpec{{Kind: mustKinds(t, tc.kind)[0]}}, first, last)
-		if err != nil || len(notes) != 2 {
-			t.Fatalf("%s: notes %+v, %v; want two", tc.kind, notes, err)
+		notes := notesOf(t, s, tc.kind, tc.before, tc.last)
+		if len(notes) != 2 {
+			t.Fatalf("%s: notes %+v; want two", tc.kind, notes)
 		}
-		want, _ := time.Parse(time.RFC3339Nano, tc.dusk)
-		if n := notes[1]; n.State != astro.AlwaysAbove || n.Dusk.Sub(want).Abs() > time.Second {
+		if n := notes[1]; n.State != astro.AlwaysAbove || !nearInstant(n.Dusk, tc.dusk) {
 			t.Errorf("%s %s: %+v; want always-above with this evening's dusk %s", tc.kind, tc.last, n, tc.dusk)
 		} else if title, desc := describeNote(newSiteInfo(s), n); !strings.HasPrefix(title, "No "+strings.TrimSuffix(tc.kind, "-dawn")+" dawn today: ") || desc != tc.desc {
 			t.Errorf("%s %s: %q\n%q\nwant %q", tc.kind, tc.last, title, desc, tc.desc)
@@ -208,10 +217,9 @@ func TestDawnNoteSpeaksOfLastNight(t *testing.T) {
 func TestDuskNoteAfterADawnGivesTheDusk(t *testing.T) {
 	s := site(t, "tromso", 69.65, 18.95, "Europe/Oslo")
 	s.Elevation = 120
-	_, notes, err := sky(t, "2027-04-10", "2027-04-10").EventsFor(context.Background(), PlaceOf(s),
-		[]config.KindSpec{{Kind: mustKinds(t, "nautical-dusk")[0]}}, date("2027-04-10"), date("2027-04-10"))
-	if err != nil || len(notes) != 1 {
-		t.Fatalf("notes %+v, %v; want one", notes, err)
+	notes := notesOf(t, s, "nautical-dusk", "2027-04-10", "2027-04-10")
+	if len(notes) != 1 {
+		t.Fatalf("notes %+v; want one", notes)
 	}
 	want := time.Date(2027, 4, 10, 22, 11, 6, 589e6, time.UTC)
 	n := notes[0]

@@ -354,12 +354,7 @@ func TestProfilesDayLengthIsTheSummarys(t *testing.T) {
 // sites, with PyEphem's crossings (tools/pyephem-checks/values.py,
 // midnight_sun_tails): TestDayLengthEndOfMidnightSun,
 // TestDirectSunEndOfMidnightSun.
-var endsOfMidnightSun = []struct {
-	name, zone, day0, day1, day2 string
-	lat, lon                     float64
-	lastSet, rise1, set1         time.Time
-	rise2, set2                  time.Time
-}{
+var endsOfMidnightSun = []midnightSunEnd{
 	{
 		// 78.92° N, 11.93° E, CEST (UTC+2)
 		name: "78.92N", zone: "Arctic/Longyearbyen", day0: "2027-08-26", day1: "2027-08-27", day2: "2027-08-28",
@@ -380,6 +375,35 @@ var endsOfMidnightSun = []struct {
 		rise2:   time.Date(2027, 2, 20, 14, 10, 32, 570e6, time.UTC), // 03:10:33 NZDT, 21 February
 		set2:    time.Date(2027, 2, 21, 11, 43, 33, 696e6, time.UTC), // 00:43:34 NZDT, 22 February
 	},
+}
+
+type midnightSunEnd struct {
+	name, zone, day0, day1, day2 string
+	lat, lon                     float64
+	lastSet, rise1, set1         time.Time
+	rise2, set2                  time.Time
+}
+
+// checkDayLengths compares the daily summary's lengths of day1 and day2 and
+// day2's change with PyEphem's days (sunrise to sunset), then the length the
+// sunrise, photoperiod and lighting of day1 (byKind) and the chart give with
+// the summary's; what names the length in the messages.
+func (c midnightSunEnd) checkDayLengths(t *testing.T, sk *Sky, s *config.Site, summary, byKind map[string]Event, what string) {
+	t.Helper()
+	w1, w2 := c.set1.Sub(c.rise1), c.set2.Sub(c.rise2)
+	d1, d2 := summary[c.day1], summary[c.day2]
+	if !within(d1.DayLength, w1) || !within(d2.DayLength, w2) || !within(d2.DayChange, w2-w1) {
+		t.Errorf("%s: %s %v; %s: %v, change %v; PyEphem: %v; %v, %v", c.day1, what, d1.DayLength, c.day2, d2.DayLength, d2.DayChange, w1, w2, w2-w1)
+	}
+	for _, k := range []string{"sunrise", "photoperiod:23h", "lighting:23h"} {
+		if e, ok := byKind[k]; !ok || e.DayLength != d1.DayLength {
+			t.Errorf("%s %s: %s %v (listed %v), want the summary's %v", c.day1, k, what, e.DayLength, ok, d1.DayLength)
+		}
+	}
+	ps, err := sk.Profiles(PlaceOf(s), date(c.day1), date(c.day1))
+	if err != nil || len(ps) != 1 || ps[0].Daylight != d1.DayLength {
+		t.Errorf("%s: chart %+v (%v), want the summary's %s %v", c.day1, ps, err, what, d1.DayLength)
+	}
 }
 
 // The date on which the midnight Sun ends, at two sites, against PyEphem
@@ -427,23 +451,10 @@ func TestDayLengthEndOfMidnightSun(t *testing.T) {
 					t.Errorf("crossing %d: heliocal %s, PyEphem %s", i, p[0].Format(time.RFC3339Nano), p[1].Format(time.RFC3339Nano))
 				}
 			}
-			w1, w2 := c.set1.Sub(c.rise1), c.set2.Sub(c.rise2)
-			d0, d1, d2 := summary[c.day0], summary[c.day1], summary[c.day2]
-			if d0.DayLength != 24*time.Hour {
+			if d0 := summary[c.day0]; d0.DayLength != 24*time.Hour {
 				t.Errorf("%s (midnight Sun): day %v, want 24 h", c.day0, d0.DayLength)
 			}
-			if !within(d1.DayLength, w1) || !within(d2.DayLength, w2) || !within(d2.DayChange, w2-w1) {
-				t.Errorf("%s: day %v; %s: day %v, change %v; PyEphem: %v; %v, %v", c.day1, d1.DayLength, c.day2, d2.DayLength, d2.DayChange, w1, w2, w2-w1)
-			}
-			for _, k := range []string{"sunrise", "photoperiod:23h", "lighting:23h"} {
-				if e, ok := byKind[k]; !ok || e.DayLength != d1.DayLength {
-					t.Errorf("%s %s: day length %v (listed %v), want the summary's %v", c.day1, k, e.DayLength, ok, d1.DayLength)
-				}
-			}
-			ps, err := sk.Profiles(PlaceOf(s), date(c.day1), date(c.day1))
-			if err != nil || len(ps) != 1 || ps[0].Daylight != d1.DayLength {
-				t.Errorf("%s: chart %+v (%v), want the summary's day length %v", c.day1, ps, err, d1.DayLength)
-			}
+			c.checkDayLengths(t, sk, s, summary, byKind, "day length")
 		})
 	}
 }
@@ -592,20 +603,7 @@ func TestDirectSunEndOfMidnightSun(t *testing.T) {
 			if !ended {
 				t.Errorf("no sunset at PyEphem's %s, the end of the midnight Sun", c.lastSet.Format(time.RFC3339))
 			}
-			w1, w2 := c.set1.Sub(c.rise1), c.set2.Sub(c.rise2)
-			d1, d2 := summary[c.day1], summary[c.day2]
-			if !within(d1.DayLength, w1) || !within(d2.DayLength, w2) || !within(d2.DayChange, w2-w1) {
-				t.Errorf("%s: direct Sun %v; %s: %v, change %v; PyEphem (flat horizon): %v; %v, %v", c.day1, d1.DayLength, c.day2, d2.DayLength, d2.DayChange, w1, w2, w2-w1)
-			}
-			for _, k := range []string{"sunrise", "photoperiod:23h", "lighting:23h"} {
-				if e, ok := byKind[k]; !ok || e.DayLength != d1.DayLength {
-					t.Errorf("%s %s: direct Sun %v (listed %v), want the summary's %v", c.day1, k, e.DayLength, ok, d1.DayLength)
-				}
-			}
-			ps, err := sk.Profiles(PlaceOf(s), date(c.day1), date(c.day1))
-			if err != nil || len(ps) != 1 || ps[0].Daylight != d1.DayLength {
-				t.Errorf("%s: chart %+v (%v), want the summary's direct Sun %v", c.day1, ps, err, d1.DayLength)
-			}
+			c.checkDayLengths(t, sk, s, summary, byKind, "direct Sun")
 		})
 		t.Run(c.name+"/hills", func(t *testing.T) {
 			s := site(t, "polar-"+c.name, c.lat, c.lon, c.zone)

@@ -232,19 +232,39 @@ func toJSONEntry(cal *feed.Calendar, e *feed.Entry) jsonEntry {
 	return j
 }
 
+// writeEntriesJSON writes {"feed": …, "entries": […], "site": {…}} as the
+// events listing is written: each entry on a line of its own, the rest
+// indented by two spaces.
 func writeEntriesJSON(w io.Writer, s *config.Site, from, to time.Time, cal *feed.Calendar) error {
-	out := struct {
-		Feed    string      `json:"feed"`
-		Entries []jsonEntry `json:"entries"`
-		Site    jsonSite    `json:"site"`
-	}{Feed: cal.ID, Entries: make([]jsonEntry, 0, len(cal.Entries))}
-	for i := range cal.Entries {
-		out.Entries = append(out.Entries, toJSONEntry(cal, &cal.Entries[i]))
+	id, err := json.Marshal(cal.ID)
+	if err != nil {
+		return err
 	}
-	out.Site = siteJSON(s, from, to)
-	enc := json.NewEncoder(w)
-	enc.SetIndent("", "  ")
-	return enc.Encode(out)
+	b := append([]byte("{\n  \"feed\": "), id...)
+	b = append(b, ",\n  \"entries\": ["...)
+	for i := range cal.Entries {
+		line, err := json.Marshal(toJSONEntry(cal, &cal.Entries[i]))
+		if err != nil {
+			return err
+		}
+		if i > 0 {
+			b = append(b, ',')
+		}
+		b = append(b, "\n    "...)
+		b = append(b, line...)
+	}
+	if len(cal.Entries) > 0 {
+		b = append(b, "\n  "...)
+	}
+	site, err := json.MarshalIndent(siteJSON(s, from, to), "  ", "  ")
+	if err != nil {
+		return err
+	}
+	b = append(b, "],\n  \"site\": "...)
+	b = append(b, site...)
+	b = append(b, "\n}\n"...)
+	_, err = w.Write(b)
+	return err
 }
 
 // entriesCSVHeader is the header row of a feed's entries as CSV: every

@@ -156,7 +156,7 @@ func (c *dayCache) date(days int64) {
 // formatted once, and how its fields are written.
 type jsonKind struct {
 	kind  config.Kind
-	head  string // `\n    {\n      "kind": "…",\n      "start": "`
+	head  string // `\n    {"kind":"…","start":"`
 	plain bool   // written by event itself (see plainJSONKinds)
 	noon  bool   // altitude_deg
 	rise  bool   // day_length_s and azimuth_deg
@@ -196,11 +196,11 @@ func (k *jsonKind) template(d astro.Direction) *jsonTemplate {
 	b = append(b, "0000-00-00\""...)
 	switch {
 	case k.noon:
-		b = append(b, ",\n      \"altitude_deg\": "...)
+		b = append(b, ",\"altitude_deg\":"...)
 	case k.rise:
-		b = append(b, ",\n      \"day_length_s\": "...)
+		b = append(b, ",\"day_length_s\":"...)
 	default:
-		b = append(b, "\n    }"...)
+		b = append(b, '}')
 	}
 	if len(b) > jsonTemplateSize {
 		k.long[dirIndex(d)] = true
@@ -240,7 +240,7 @@ func (j *jsonSink) prepare(c *feed.Chunk, out *chunkOut) error {
 	}
 	p.notes = p.notes[:0]
 	for i := range c.Notes {
-		obj, err := json.MarshalIndent(toJSONNote(c.Notes[i]), "    ", "  ")
+		obj, err := json.Marshal(toJSONNote(c.Notes[i]))
 		if err != nil {
 			return err
 		}
@@ -344,8 +344,8 @@ func (j *jsonSink) writeBytes(b []byte) {
 }
 
 // writePiece is the most that a write hands to the system at once. Into a
-// fresh file, the 20-year JSON listing (14.5 MB) took 26 ms when written
-// 64 KB at a time, 27 ms with 32 KB or 128 KB and 34 ms with 256 KB
+// fresh file, the 20-year JSON listing (14.5 MB when it was indented one
+// field per line) took 26 ms when written 64 KB at a time, 27 ms with 32 KB or 128 KB and 34 ms with 256 KB
 // (medians of 8 runs after a 3 s pause each); a chunk's 360 KB at once
 // took about 10 ms longer than 256 KB. (Why larger writes cost the system
 // more was not looked into.)
@@ -435,7 +435,7 @@ const (
 // jsonRoom returns b with room for the next jsonBlock events written by
 // plainEvent, one after the other, so that they need not check it. When it
 // grows b, it makes room for n events of 160 bytes at least (a sunrise
-// takes 195, a twilight 140 to 150): the runtime clears the whole buffer
+// takes 147, a twilight 104 to 111): the runtime clears the whole buffer
 // when it allocates it, so it is not made much larger than a chunk needs.
 func jsonRoom(b []byte, n int) []byte {
 	if cap(b)-len(b) < jsonBlock*jsonEventRoom {
@@ -451,7 +451,7 @@ func jsonRoom(b []byte, n int) []byte {
 func (p *jsonPart) event(b []byte, e *feed.Event, k *jsonKind) []byte {
 	b = append(b, ',')
 	if !k.plain || e.DirectSun || e.Open || e.LongDay {
-		obj, err := json.MarshalIndent(toJSONEvent(*e), "    ", "  ")
+		obj, err := json.Marshal(toJSONEvent(*e))
 		if err != nil { // plain strings and finite numbers: cannot fail
 			panic(err)
 		}
@@ -461,27 +461,27 @@ func (p *jsonPart) event(b []byte, e *feed.Event, k *jsonKind) []byte {
 	b = append(b, k.head...)
 	b = p.days.appendUTCMillis(b, e.Start)
 	if !e.End.IsZero() {
-		b = append(b, "\",\n      \"end\": \""...)
+		b = append(b, "\",\"end\":\""...)
 		b = p.days.appendUTCMillis(b, e.End)
 	}
 	b = appendToDate(b, e.Direction)
 	b = p.days.appendCivilDate(b, e.Date)
 	b = append(b, '"')
 	if e.Part != "" {
-		b = append(b, ",\n      \"part\": "...)
+		b = append(b, ",\"part\":"...)
 		b = appendJSONString(b, e.Part)
 	}
 	switch {
 	case k.noon || e.Part != "" && feed.MergedSpan(*e): // a merged span has a part: most events are spared the call
-		b = append(b, ",\n      \"altitude_deg\": "...)
+		b = append(b, ",\"altitude_deg\":"...)
 		b = appendRounded(b, e.Altitude, 4)
 	case k.rise:
-		b = append(b, ",\n      \"day_length_s\": "...)
+		b = append(b, ",\"day_length_s\":"...)
 		b = appendRounded(b, e.DayLength.Seconds(), 3)
-		b = append(b, ",\n      \"azimuth_deg\": "...)
+		b = append(b, ",\"azimuth_deg\":"...)
 		b = appendRounded(b, e.Azimuth, 2)
 	}
-	return append(b, "\n    }"...)
+	return append(b, '}')
 }
 
 // plainEvent appends the event e of the plain kind k, without end or part,
@@ -501,12 +501,12 @@ func (p *jsonPart) plainEvent(b []byte, k *jsonKind, t *jsonTemplate, e *feed.Ev
 	switch {
 	case k.noon:
 		b = appendRounded(b, e.Altitude, 4)
-		b = append(b, "\n    }"...)
+		b = append(b, '}')
 	case k.rise:
 		b = appendRounded(b, e.DayLength.Seconds(), 3)
-		b = append(b, ",\n      \"azimuth_deg\": "...)
+		b = append(b, ",\"azimuth_deg\":"...)
 		b = appendRounded(b, e.Azimuth, 2)
-		b = append(b, "\n    }"...)
+		b = append(b, '}')
 	}
 	return b
 }
@@ -534,7 +534,7 @@ func (p *jsonPart) kind(k *config.Kind) *jsonKind {
 	}
 	jk := &jsonKind{kind: *k, plain: plainJSONKinds[k.Name], noon: k.Name == "solar-noon",
 		rise: k.Name == "sunrise" || k.Name == "sunset"}
-	jk.head = string(append(appendJSONString([]byte("\n    {\n      \"kind\": "), k.String()), ",\n      \"start\": \""...))
+	jk.head = string(append(appendJSONString([]byte("\n    {\"kind\":"), k.String()), ",\"start\":\""...))
 	p.kinds = append(p.kinds, jk)
 	return jk
 }
@@ -546,11 +546,11 @@ func (p *jsonPart) kind(k *config.Kind) *jsonKind {
 func appendToDate(b []byte, d astro.Direction) []byte {
 	switch d {
 	case astro.Rising:
-		return append(b, "\",\n      \"direction\": \"rising\",\n      \"date\": \""...)
+		return append(b, "\",\"direction\":\"rising\",\"date\":\""...)
 	case astro.Setting:
-		return append(b, "\",\n      \"direction\": \"setting\",\n      \"date\": \""...)
+		return append(b, "\",\"direction\":\"setting\",\"date\":\""...)
 	}
-	return append(b, "\",\n      \"date\": \""...)
+	return append(b, "\",\"date\":\""...)
 }
 
 // dirIndex numbers a direction for jsonKind.tmpl: 0 none, 1 rising, 2

@@ -149,13 +149,50 @@ func encoderJSON(t *testing.T, lat, lon float64, zone, kindList string, maxLit f
 		doc.Events = append(doc.Events, toJSONEvent(e))
 	}
 	doc.Site = jsonSite{sitePlace: sitePlace{Name: site.Name, Latitude: lat, Longitude: lon}, TimeZone: zone, From: fromText, To: toText}
-	var want bytes.Buffer
-	enc := json.NewEncoder(&want)
-	enc.SetIndent("", "  ")
-	if err := enc.Encode(doc); err != nil {
+	return lineDocument(t, doc.Events, doc.Notes, doc.Site), st
+}
+
+// lineDocument is the events document as encoding/json writes its parts:
+// {"events": […], "notes": […], "site": {…}} with each event and note
+// compact on a line of its own, four spaces in, and the site indented by
+// two spaces.
+func lineDocument(t *testing.T, events []jsonEvent, notes []jsonNote, site jsonSite) string {
+	t.Helper()
+	var b strings.Builder
+	lines := func(name string, objs []any) {
+		b.WriteString("  \"" + name + "\": [")
+		for i, o := range objs {
+			if i > 0 {
+				b.WriteString(",")
+			}
+			line, err := json.Marshal(o)
+			if err != nil {
+				t.Fatal(err)
+			}
+			b.WriteString("\n    " + string(line))
+		}
+		if len(objs) > 0 {
+			b.WriteString("\n  ")
+		}
+		b.WriteString("],\n")
+	}
+	b.WriteString("{\n")
+	lines("events", anys(events))
+	lines("notes", anys(notes))
+	s, err := json.MarshalIndent(site, "  ", "  ")
+	if err != nil {
 		t.Fatal(err)
 	}
-	return want.String(), st
+	b.WriteString("  \"site\": " + string(s) + "\n}\n")
+	return b.String()
+}
+
+func anys[T any](s []T) []any {
+	a := make([]any, len(s))
+	for i := range s {
+		a[i] = s[i]
+	}
+	return a
 }
 
 // sameLines fails t at the first line where got and want differ.

@@ -441,7 +441,7 @@ func TestEventsTableMinusSign(t *testing.T) {
 		t.Errorf("table:\n%s\nwant −5 m and altitude −12.36°", out)
 	}
 	code, out, errOut = runCLI(t, append(args, "--format", "json")...)
-	if code != 0 || !strings.Contains(out, `"altitude_deg": -12.3579`) || !strings.Contains(out, `"elevation_m": -5`) {
+	if code != 0 || !strings.Contains(out, `"altitude_deg":-12.3579`) || !strings.Contains(out, `"elevation_m": -5`) {
 		t.Errorf("JSON (exit %d, %s):\n%s\nwant altitude_deg -12.3579", code, errOut, out)
 	}
 }

@@ -19,7 +19,7 @@ import (
 // millisecond; the search may move its last digit).
 func TestReadmeEventsExample(t *testing.T) {
 	shown := readmeJSON(t, func(l string) bool {
-		return strings.HasPrefix(l, `{"kind": "`) && strings.Contains(l, `"date": "2027-01-01"`) && strings.Contains(l, `"start": "2027-01-01T`)
+		return strings.HasPrefix(l, `{"kind":"`) && strings.Contains(l, `"date":"2027-01-01"`) && strings.Contains(l, `"start":"2027-01-01T`)
 	})
 	shown = slices.DeleteFunc(shown, func(e map[string]any) bool {
 		k := e["kind"]
@@ -114,7 +114,7 @@ func samePrinted(t *testing.T, what string, want, got map[string]any) {
 // field printed shown, the instants (contacts and maximum) within 5 ms.
 func TestReadmeEclipseExample(t *testing.T) {
 	shown := readmeJSON(t, func(l string) bool {
-		return strings.HasPrefix(l, `{"kind": "solar-eclipse"`) || strings.HasPrefix(l, `{"kind": "lunar-eclipse"`)
+		return strings.HasPrefix(l, `{"kind":"solar-eclipse"`) || strings.HasPrefix(l, `{"kind":"lunar-eclipse"`)
 	})
 	if len(shown) != 2 {
 		t.Fatalf("found %d eclipse lines in the README, want 2", len(shown))
@@ -143,7 +143,7 @@ func TestReadmeFeedExample(t *testing.T) {
 	readme := readmeBytes(t)
 	n := 0
 	for _, l := range strings.Split(string(readme), "\n") {
-		if !strings.HasPrefix(l, `{"kind": "`) || !strings.Contains(l, `"uid": "…"`) {
+		if !strings.HasPrefix(l, `{"kind":"`) || !strings.Contains(l, `"uid":"…"`) {
 			continue
 		}
 		n++

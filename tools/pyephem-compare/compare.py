@@ -28,7 +28,7 @@ events per second of each side and their ratio, and the load average.
 
 Where the output goes (--to) is part of what is timed:
   file  a fresh temporary file (as `> events.json` would; the default): the
-        kernel puts the 14.5 MB into new page-cache pages, which costs the
+        kernel puts the 10.7 MB into new page-cache pages, which costs the
         writer more after the machine has done other work (see --floor);
   pipe  a pipe this script reads (the reader's own pace is part of the
         writer's wall time; --pipe is the same);
@@ -123,8 +123,12 @@ def pyephem_events(first_year, last_year):
         if d:
             e["direction"] = d
         out.append(e)
-    json.dump({"events": out}, sys.stdout, indent=2)
-    sys.stdout.write("\n")
+    # the layout of heliocal's listing: one event per line
+    w = sys.stdout.write
+    w('{\n  "events": [')
+    for i, e in enumerate(out):
+        w((",\n    " if i else "\n    ") + json.dumps(e, separators=(",", ":")))
+    w("\n  ]\n}\n")
 
 
 def timed(cmd, to, stdin=None):

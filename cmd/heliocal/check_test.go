@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"context"
 	"encoding/json"
+	"errors"
 	"os"
 	"path/filepath"
 	"strings"
@@ -187,5 +188,24 @@ feeds:
 	}
 	if strings.Contains(out, "-0/") || strings.Contains(out, "/+0 ") {
 		t.Errorf("a side of zero days is shown:\n%s", out)
+	}
+}
+
+// fullWriter is an output that takes nothing, as /dev/full: every write
+// fails with the error ENOSPC gives.
+type fullWriter struct{}
+
+func (fullWriter) Write([]byte) (int, error) { return 0, errors.New("no space left on device") }
+
+// check's report, as text or JSON, on an output that cannot take it is a
+// run-time failure (exit 1) that says why, never a silent success.
+func TestCheckOutputFull(t *testing.T) {
+	cfg := readConfig(t, "good-minimal.yaml")
+	for _, format := range []string{"text", "json"} {
+		var errOut bytes.Buffer
+		code := runWithInput(context.Background(), []string{"check", "--config", "-", "--format", format}, strings.NewReader(cfg), fullWriter{}, &errOut, noEnv)
+		if code != exitFailure || !strings.Contains(errOut.String(), "no space left on device") {
+			t.Errorf("--format %s: exit %d, stderr %q; want exit 1 naming the failed write", format, code, errOut.String())
+		}
 	}
 }

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"bytes"
 	"context"
 	"encoding/json"
 	"errors"
@@ -151,8 +152,7 @@ func runCheck(ctx context.Context, g *globals, now time.Time, format string) err
 	if format == "json" {
 		return writeCheckJSON(g, r)
 	}
-	writeCheckText(g, r, notes)
-	return nil
+	return writeCheckText(g, r, notes)
 }
 
 // zoneNotes says, for each site without a timezone, which zone was taken
@@ -232,9 +232,10 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 }
 
 // writeCheckText prints the report as two tables on standard output, the
-// warnings on standard error.
-func writeCheckText(g *globals, r *checkReport, notes []string) {
-	w := g.stdout
+// warnings on standard error. The tables are written in one piece, so that
+// an output that cannot take them (a full disk, a closed pipe) is an error.
+func writeCheckText(g *globals, r *checkReport, notes []string) error {
+	w := new(bytes.Buffer)
 	fmt.Fprintf(w, "configuration: %s (valid)\n\n", r.Configuration)
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	fmt.Fprintln(tw, "SITE\tNAME\tLATITUDE\tLONGITUDE\tELEVATION\tHORIZON\tZONE")
@@ -264,9 +265,11 @@ func writeCheckText(g *globals, r *checkReport, notes []string) {
 		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%d\t%s\n", f.ID, f.Site, strings.Join(kinds, ","), window(f.DaysBack, f.DaysAhead), f.Events, size(f.Bytes))
 	}
 	tw.Flush()
+	_, err := g.stdout.Write(w.Bytes())
 	for _, wmsg := range r.Warnings {
 		fmt.Fprintln(g.stderr, "warning: "+wmsg)
 	}
+	return err
 }
 
 // size writes a feed's size as every size heliocal reports.

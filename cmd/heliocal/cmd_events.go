@@ -350,6 +350,19 @@ func clock(t time.Time, loc *time.Location) string {
 	return feed.ToSecond(t).In(loc).Format("15:04:05")
 }
 
+// endClock is the end of a span from start as the tables show it after
+// its start's clock and zone: the clock alone, or with the end's zone
+// label when a clock change lies between them ("00:15:00 CST" after a
+// start at "00:15:00 CDT"), so that the two readings are not taken for one.
+func endClock(start, end time.Time, loc *time.Location) string {
+	s, e := feed.ToSecond(start).In(loc), feed.ToSecond(end).In(loc)
+	sz, _ := s.Zone()
+	if ez, _ := e.Zone(); ez != sz {
+		return feed.LocalClock(e, loc, true)
+	}
+	return e.Format("15:04:05")
+}
+
 type jsonEvent struct {
 	Kind  string `json:"kind"`
 	Start string `json:"start,omitempty"` // none for a date-only event
@@ -554,7 +567,7 @@ func detailsAt(e *feed.Event, loc *time.Location, o astro.Observer) string {
 	case e.Open:
 		parts = append(parts, "until past the end of the listing")
 	case !e.End.IsZero():
-		parts = append(parts, fmt.Sprintf("until %s%s (%s)", clock(e.End, loc), feed.DayMark(e.End, e.Date, loc), feed.SpanLength(feed.ToSecond(e.End).Sub(feed.ToSecond(e.Start)))))
+		parts = append(parts, fmt.Sprintf("until %s%s (%s)", endClock(e.Start, e.End, loc), feed.DayMark(e.End, e.Date, loc), feed.SpanLength(feed.ToSecond(e.End).Sub(feed.ToSecond(e.Start)))))
 	}
 	words := feed.SpanWords(*e, o)
 	switch {

@@ -327,7 +327,7 @@ func writeEntriesTable(w io.Writer, s *config.Site, cal *feed.Calendar) error {
 			case e.Facts.Open: // the end of the listing, not the Sun's leaving the band
 				when += " – past the end of the listing"
 			case !e.End.IsZero():
-				when += " – " + clock(e.End, loc) + feed.DayMark(e.End, e.Date, loc)
+				when += " – " + endClock(e.Start, e.End, loc) + feed.DayMark(e.End, e.Date, loc)
 			}
 		}
 		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\n", e.Date.Format("2006-01-02 Mon"), when, e.Kind, e.Title)

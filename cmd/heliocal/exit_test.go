@@ -75,3 +75,18 @@ func TestExitCodesEndToEnd(t *testing.T) {
 		}
 	}
 }
+
+// A misspelt command is one line, like every other error, with cobra's
+// suggestion in brackets; exit 2.
+func TestUnknownCommandOneLine(t *testing.T) {
+	for args, want := range map[string]string{
+		"publsh":       `heliocal: unknown command "publsh" for "heliocal" (did you mean "publish"?)` + "\n",
+		"evnts":        `heliocal: unknown command "evnts" for "heliocal" (did you mean "events"?)` + "\n",
+		"events stray": `heliocal: unknown command "stray" for "heliocal events"` + "\n",
+	} {
+		code, out, errOut := runCLI(t, strings.Fields(args)...)
+		if code != exitInput || out != "" || errOut != want {
+			t.Errorf("heliocal %s: exit %d, stdout %q, stderr %q; want exit 2 and %q", args, code, out, errOut, want)
+		}
+	}
+}

@@ -7,6 +7,7 @@ import (
 	"io"
 	"os"
 	"slices"
+	"strconv"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -97,12 +98,31 @@ func runWithInput(ctx context.Context, args []string, stdin io.Reader, stdout, s
 		return exitOK
 	}
 	if strings.HasPrefix(err.Error(), "unknown command ") {
-		err = inputError{err} // cobra's own error for an unknown command or a stray argument
+		err = inputError{unknownCommand(err)} // cobra's own error for an unknown command or a stray argument
 	}
 	if !errors.As(err, new(silentError)) {
 		fmt.Fprintln(stderr, "heliocal:", err)
 	}
 	return exitCode(err)
+}
+
+// unknownCommand is cobra's error for an unknown command on one line, its
+// suggestions in brackets: `unknown command "publsh" for "heliocal" (did
+// you mean "publish"?)` rather than a block of four lines.
+func unknownCommand(err error) error {
+	first, rest, _ := strings.Cut(err.Error(), "\n")
+	_, suggested, ok := strings.Cut(rest, "Did you mean this?")
+	if !ok {
+		return err
+	}
+	var names []string
+	for _, name := range strings.Fields(suggested) {
+		names = append(names, strconv.Quote(name))
+	}
+	if len(names) == 0 {
+		return errors.New(first)
+	}
+	return errors.New(first + " (did you mean " + strings.Join(names, " or ") + "?)")
 }
 
 func exitCode(err error) int {

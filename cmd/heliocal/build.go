@@ -292,6 +292,12 @@ func markLabel(e feed.Event) string {
 		return "cross-quarter " + e.Part + "°"
 	case "solar-eclipse", "lunar-eclipse":
 		return eclipseMark(e)
+	case "noon-clear":
+		// the date the noon Sun goes behind the skyline, or clears it again
+		if e.Direction == astro.Rising {
+			return "noon Sun clears"
+		}
+		return "noon Sun hidden"
 	}
 	return e.Kind.Name
 }

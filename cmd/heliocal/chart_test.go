@@ -7,6 +7,7 @@ import (
 	"testing"
 	"time"
 
+	"heliocal/astro"
 	"heliocal/config"
 	"heliocal/feed"
 	"heliocal/feed/publish"
@@ -210,6 +211,22 @@ feeds:
 		}
 		if len(got) != 1 || (got[0].From-tc.from).Abs() > time.Minute || (got[0].To-tc.to).Abs() > time.Minute {
 			t.Errorf("%s: lamp pieces on 5 March 2024 %+v, want one from %v to %v (± 1 min)", tc.name, got, tc.from, tc.to)
+		}
+	}
+}
+
+// A noon-clear date is marked in words that say which way it goes: the
+// noon Sun going behind the skyline, or clearing it again, as the feed's
+// titles say ("The noon Sun stays behind the skyline from today", "The
+// noon Sun clears the skyline again"), not by the kind's name for both.
+func TestChartNoonClearMarks(t *testing.T) {
+	k, err := config.ParseKind("noon-clear")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for dir, want := range map[astro.Direction]string{astro.Setting: "noon Sun hidden", astro.Rising: "noon Sun clears"} {
+		if got := markLabel(feed.Event{Kind: k, Direction: dir}); got != want {
+			t.Errorf("noon-clear %v: mark %q, want %q", dir, got, want)
 		}
 	}
 }

@@ -1,7 +1,6 @@
 package feed
 
 import (
-	"fmt"
 	"math"
 	"strconv"
 )
@@ -25,8 +24,9 @@ func Coords(lat, lon float64, decimals int) string {
 }
 
 // CoordsName is the name of a place given by its coordinates alone (`events
-// --lat --lon`, ad-hoc feeds without a name): "-45.0000, -72.0000". Texts
-// that name a site recognise it and write the coordinates only once.
+// --lat --lon`, ad-hoc feeds without a name): "45.0000° S, 72.0000° W", as
+// Coords writes them to four decimals. Texts that name a site recognise it
+// and write the coordinates only once.
 func CoordsName(lat, lon float64) string {
-	return fmt.Sprintf("%.4f, %.4f", lat, lon)
+	return Coords(lat, lon, 4)
 }

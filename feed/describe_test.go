@@ -305,16 +305,16 @@ func TestDegreesNoNegativeZero(t *testing.T) {
 
 // A place named by its coordinates alone (events --lat --lon, an ad-hoc
 // feed) is not named twice in a text: "Moonrise at 02:53:42 -03, 45.000° S,
-// 72.000° W: …", not "-45.0000, -72.0000 (45.000° S, 72.000° W)"; a named
-// site keeps its name and coordinates.
+// 72.000° W: …", not "45.0000° S, 72.0000° W (45.000° S, 72.000° W)"; a
+// named site keeps its name and coordinates.
 func TestWhereNamesCoordinatesOnce(t *testing.T) {
 	for _, c := range []struct {
 		name     string
 		lat, lon float64
 		want     string
 	}{
-		{"-45.0000, -72.0000", -45, -72, "45.000° S, 72.000° W"},
-		{"48.2000, 16.4000", 48.2, 16.4, "48.200° N, 16.400° E"},
+		{"45.0000° S, 72.0000° W", -45, -72, "45.000° S, 72.000° W"},
+		{"48.2000° N, 16.4000° E", 48.2, 16.4, "48.200° N, 16.400° E"},
 		{"Fernhollow Mixed Farm", 48.26, 15.92, "Fernhollow Mixed Farm (48.260° N, 15.920° E)"},
 		{"48.2000, 16.4000", 48.3, 16.4, "48.2000, 16.4000 (48.300° N, 16.400° E)"}, // a name of the user's own
 	} {

@@ -454,7 +454,7 @@ func refractionText(o astro.Observer) string {
 
 // where names site s in a text with its coordinates: "Fernhollow Mixed Farm
 // (48.260° N, 15.920° E)"; a place named by its coordinates alone, as
-// `events --lat --lon` and ad-hoc feeds name it ("-45.0000, -72.0000"), is
+// `events --lat --lon` and ad-hoc feeds name it ("45.0000° S, 72.0000° W"), is
 // written once: "45.000° S, 72.000° W".
 func where(s *config.Site) string {
 	c := Coords(s.Latitude, s.Longitude, 3)

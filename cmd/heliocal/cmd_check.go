@@ -15,6 +15,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"heliocal/config"
+	"heliocal/feed"
 	"heliocal/feed/ical"
 	"heliocal/feed/publish"
 )
@@ -171,8 +172,8 @@ func zoneNotes(cfg *config.Config, now time.Time) []string {
 // has no timezone, named with its offset at when: the words of check,
 // publish, serve and events alike.
 func zoneNote(s *config.Site, when time.Time) string {
-	return fmt.Sprintf("site %s has no timezone: using %s, the zone in force at %.4f, %.4f; add timezone: to choose another",
-		s.ID, config.DescribeZone(s.TimeZone.Location, when), s.Latitude, s.Longitude)
+	return fmt.Sprintf("site %s has no timezone: using %s, the zone in force at %s; add timezone: to choose another",
+		s.ID, config.DescribeZone(s.TimeZone.Location, when), feed.Coords(s.Latitude, s.Longitude, 4))
 }
 
 // checkConfig builds every feed of a valid configuration once and reports

@@ -269,8 +269,8 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 		if o.site != "" || o.feed != "" {
 			fmt.Fprintf(g.stderr, "heliocal: note: %s\n", zoneNote(site, first))
 		} else {
-			fmt.Fprintf(g.stderr, "heliocal: no --tz given: using %s, the zone in force at %.4f, %.4f (give --tz to choose another)\n",
-				config.DescribeZone(loc, first), site.Latitude, site.Longitude)
+			fmt.Fprintf(g.stderr, "heliocal: no --tz given: using %s, the zone in force at %s (give --tz to choose another)\n",
+				config.DescribeZone(loc, first), feed.Coords(site.Latitude, site.Longitude, 4))
 		}
 	}
 	var specs []config.KindSpec

@@ -879,7 +879,11 @@ type tablePart struct {
 
 func newTableSink(w *bufio.Writer, s *config.Site) *tableSink {
 	loc := s.TimeZone.Location
-	fmt.Fprintf(w, "%s: %s, %s m, %s\n\n", s.Name, feed.Coords(s.Latitude, s.Longitude, 4), signed(s.Elevation, -1), loc)
+	place := feed.Coords(s.Latitude, s.Longitude, 4)
+	if s.Name != place { // a place named by its coordinates alone is not named twice
+		place = s.Name + ": " + place
+	}
+	fmt.Fprintf(w, "%s, %s m, %s\n\n", place, signed(s.Elevation, -1), loc)
 	return &tableSink{w: w, loc: loc, o: feed.PlaceOf(s).Observer}
 }
 

@@ -73,11 +73,21 @@ type chunkStats struct{ chunks, notes, held, inside, ties int }
 
 // encoderJSON returns the document of the events command's JSON for the
 // place and kinds on the dates from..to (YYYY-MM-DD) as encoding/json's
-// indenting Encoder writes it: every chunk's events sorted by start, stable,
+// Marshal writes it, one event a line (lineDocument): every chunk's events sorted by start, stable,
 // and its notes in order.
 func encoderJSON(t *testing.T, lat, lon float64, zone, kindList string, maxLit float64, fromText, toText string) (string, chunkStats) {
 	t.Helper()
-	site := &config.Site{ID: "place", Name: fmt.Sprintf("%.4f, %.4f", lat, lon), Latitude: lat, Longitude: lon}
+	// the place's name: its coordinates with their hemispheres, as the
+	// README shows ("48.2000° N, 16.4000° E")
+	ns, ew := "N", "E"
+	if lat < 0 {
+		ns = "S"
+	}
+	if lon < 0 {
+		ew = "W"
+	}
+	name := fmt.Sprintf("%.4f° %s, %.4f° %s", math.Abs(lat), ns, math.Abs(lon), ew)
+	site := &config.Site{ID: "place", Name: name, Latitude: lat, Longitude: lon}
 	if err := site.TimeZone.UnmarshalText([]byte(zone)); err != nil {
 		t.Fatal(err)
 	}

@@ -80,7 +80,7 @@ func TestEventsNamesInferredZoneAsCheck(t *testing.T) {
 	cfg := filepath.Join("..", "..", "testdata", "config", "missing-timezone.yaml")
 	for _, args := range [][]string{{"--site", "cane-field"}, {"--feed", "cane-sun"}} {
 		code, _, errOut := runCLI(t, append([]string{"--config", cfg, "events", "--from", "2027-06-01", "--to", "2027-06-01"}, args...)...)
-		want := "heliocal: note: site cane-field has no timezone: using America/Havana (UTC−04:00, CDT), the zone in force at 22.9500, -82.3000; add timezone: to choose another\n"
+		want := "heliocal: note: site cane-field has no timezone: using America/Havana (UTC−04:00, CDT), the zone in force at 22.9500° N, 82.3000° W; add timezone: to choose another\n"
 		if code != 0 || errOut != want {
 			t.Errorf("%v: exit %d, stderr %q, want %q", args, code, errOut, want)
 		}

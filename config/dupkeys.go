@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"strconv"
 	"strings"
+	"time"
 
 	"github.com/pelletier/go-toml/v2/unstable"
 	"go.yaml.in/yaml/v3"
@@ -166,9 +167,25 @@ func (d *dupFinder) yaml(data []byte) {
 			for i, c := range n.Content {
 				walk(c, index(path, i))
 			}
+		case yaml.ScalarNode:
+			keepDateAsWritten(n)
 		}
 	}
 	walk(&doc, "")
+}
+
+// keepDateAsWritten makes text of a plain YAML scalar that YAML 1.1 reads
+// as a timestamp whose date has a one-digit month or day ("2027-6-12",
+// "2027-06-1"): the decoder would turn it into 2027-06-12 and the file
+// would be read as it is not written. As text it is checked as TOML and
+// JSON give it, and refused as every date not written YYYY-MM-DD is.
+func keepDateAsWritten(n *yaml.Node) {
+	if n.Kind != yaml.ScalarNode || n.Tag != "!!timestamp" || n.Style&yaml.TaggedStyle != 0 {
+		return
+	}
+	if date, _, _ := strings.Cut(strings.NewReplacer("t", "T", " ", "T").Replace(n.Value), "T"); len(date) != len(time.DateOnly) {
+		n.Tag = "!!str"
+	}
 }
 
 func (d *dupFinder) toml(data []byte) {
@@ -312,6 +329,7 @@ func withoutDuplicates(data []byte, format string) ([]byte, string) {
 	}
 	var strip func(n *yaml.Node)
 	strip = func(n *yaml.Node) {
+		keepDateAsWritten(n)
 		if n.Kind == yaml.MappingNode {
 			seen := map[string]bool{}
 			kept := n.Content[:0]

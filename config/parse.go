@@ -125,6 +125,11 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 	v := viper.New()
 	v.SetConfigType(decodedAs)
 	if err := readConfig(v, decoded, doc); err != nil {
+		if format == "toml" {
+			if quoted, ok := quoteTOMLDates(data, decoded); ok {
+				return parse(quoted, format, env, dir)
+			}
+		}
 		if len(dups) > 0 {
 			return nil, newValidationError(dups)
 		}
@@ -278,6 +283,83 @@ func tomlValueAt(data []byte, row, col int) string {
 		return value + ": "
 	}
 	return key + ": " + value + ": "
+}
+
+// maxQuotedDates bounds the values quoteTOMLDates quotes in one file.
+const maxQuotedDates = 1000
+
+// quoteTOMLDates puts in quotes each unquoted value written as a date that
+// the TOML parser refuses ("2027-6-12", "27-06-12", "2027-02-30": TOML
+// dates are YYYY-MM-DD and exist), so that it is read as text and checked
+// as the same date written in YAML or JSON is: "feeds[0].kinds[0].dates[1]:
+// 2027-6-12: not a date (write it 2027-06-12)", with the field's path,
+// rather than a syntax error. decoded is data as the parser reads it (its
+// repeated keys blanked, the lines numbered as in data). It returns data
+// with the quotes, and whether the parser then reads it; false when a
+// refusal is of anything else, which is then reported as it is.
+func quoteTOMLDates(data, decoded []byte) (out []byte, ok bool) {
+	defer func() {
+		if recover() != nil {
+			out, ok = nil, false // hostile input: the reader reports it
+		}
+	}()
+	for i := range maxQuotedDates + 1 {
+		var m map[string]any
+		err := toml.Unmarshal(decoded, &m)
+		if err == nil {
+			return data, i > 0
+		}
+		if i == maxQuotedDates {
+			break
+		}
+		var pos interface{ Position() (int, int) }
+		if !errors.As(err, &pos) {
+			return nil, false
+		}
+		row, col := pos.Position()
+		if decoded, ok = quoteAt(decoded, row, col); !ok {
+			return nil, false
+		}
+		if data, ok = quoteAt(data, row, col); !ok {
+			return nil, false
+		}
+	}
+	return nil, false
+}
+
+// quoteAt puts in quotes the value written as a date that starts at line
+// row, column col (1-based, in bytes) of data; false when no such value
+// starts there.
+func quoteAt(data []byte, row, col int) ([]byte, bool) {
+	start := 0
+	for range row - 1 {
+		i := bytes.IndexByte(data[start:], '\n')
+		if i < 0 {
+			return nil, false
+		}
+		start += i + 1
+	}
+	line := data[start:]
+	if i := bytes.IndexByte(line, '\n'); i >= 0 {
+		line = line[:i]
+	}
+	if col < 1 || col > len(line) {
+		return nil, false
+	}
+	value := line[col-1:]
+	if i := bytes.IndexAny(value, " \t\r,]}#"); i >= 0 {
+		value = value[:i]
+	}
+	if !isDateLike(string(value)) {
+		return nil, false
+	}
+	at := start + col - 1
+	out := make([]byte, 0, len(data)+2)
+	out = append(out, data[:at]...)
+	out = append(out, '"')
+	out = append(out, value...)
+	out = append(out, '"')
+	return append(out, data[at+len(value):]...), true
 }
 
 // yamlTabMessage names the line of a tab in YAML's indentation: the YAML

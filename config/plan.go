@@ -123,13 +123,14 @@ const (
 	LastListedDate  = "2200-12-31"
 )
 
-// ParseListedDate reads a date of a dates list, "YYYY-MM-DD", and returns
-// it at 00:00 UTC. A date that does not exist ("2027-02-30") or lies
+// ParseListedDate reads a date of a dates list or a plan's date rule,
+// "YYYY-MM-DD" (see parseDate), and returns it at 00:00 UTC. A date written
+// otherwise ("2027-6-12"), one that does not exist ("2027-02-30") or one
 // outside FirstListedDate..LastListedDate is a *RuleError.
 func ParseListedDate(s string) (time.Time, error) {
-	d, err := time.Parse(time.DateOnly, strings.TrimSpace(s))
-	if err != nil {
-		return time.Time{}, &RuleError{Msg: "not a date", Hint: "write YYYY-MM-DD, e.g. 2027-06-12"}
+	d, re := parseDate(s)
+	if re != nil {
+		return time.Time{}, re
 	}
 	if t := d.Format(time.DateOnly); t < FirstListedDate || t > LastListedDate {
 		return time.Time{}, &RuleError{Msg: fmt.Sprintf("outside the supported range %s..%s", FirstListedDate, LastListedDate),
@@ -234,16 +235,25 @@ func parseDateRule(f []string) (DateRule, *RuleError) {
 			}
 			return DateRule{Type: RuleYearly, Month: t.Month(), Day: t.Day()}, nil
 		}
-		if len(f[1]) == 5 && f[1][2] == '-' && strings.Trim(f[1][:2]+f[1][3:], "0123456789") == "" {
-			// written as a date, but no date of the year ("02-30", "13-01")
+		if isDateLike(f[1]) {
+			return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is one date, not a date of every year", f[1]),
+				Hint: `for that date alone, write it without "every"; for every year, "every MM-DD"`}
+		}
+		if m, d, ok := monthDay(f[1]); ok {
+			// written as a date of the year: one-digit ("6-12"), or no
+			// date of the year ("02-30", "13-01")
+			if m >= 1 && m <= 12 && d >= 1 && d <= daysIn(time.Month(m), 2028) {
+				return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is not a date of the year written MM-DD", f[1]),
+					Hint: fmt.Sprintf(`write it "every %02d-%02d"`, m, d)}
+			}
 			return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is not a date of the year (MM-DD: a month 01..12, then a day that month has)", f[1]),
 				Hint: `e.g. "every 04-25"; "every 02-29" is in leap years only`}
 		}
 		return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is not a weekday, \"day\" or a date MM-DD", f[1]), Hint: `e.g. "every friday" or "every 04-25"`}
-	case len(f) == 1 && len(f[0]) == 10 && f[0][4] == '-':
-		d, err := time.Parse(time.DateOnly, f[0])
+	case len(f) == 1 && isDateLike(f[0]):
+		d, err := ParseListedDate(f[0])
 		if err != nil {
-			return DateRule{}, &RuleError{Msg: "not a date", Hint: "write YYYY-MM-DD, e.g. 2027-06-12"}
+			return DateRule{}, err.(*RuleError)
 		}
 		return DateRule{Type: RuleOnce, Date: d}, nil
 	case len(f) == 1 && isDayWord(f[0]):
@@ -363,7 +373,7 @@ func nearWords(f []string) []string {
 	}
 	switch len(f) {
 	case 1:
-		if isDayWord(f[0]) {
+		if isDayWord(f[0]) || isDateLike(f[0]) {
 			return nil // its own hint says what to write
 		}
 		if k := anchor(f[0]); k != "" {

@@ -50,6 +50,31 @@ func TestParseDateRule(t *testing.T) {
 	}
 }
 
+// TestDateRuleWrittenOneWay: a plan's yearly date is written MM-DD and its
+// one date YYYY-MM-DD, as a dates list's dates are; written otherwise the
+// hint gives the rule as it should be written (29 February exists in leap
+// years, so "every 2-29" is "every 02-29").
+func TestDateRuleWrittenOneWay(t *testing.T) {
+	for _, tc := range []struct{ in, msg, hint string }{
+		{"every 6-12", `"6-12" is not a date of the year written MM-DD`, `write it "every 06-12"`},
+		{"every 06-1", `"06-1" is not a date of the year written MM-DD`, `write it "every 06-01"`},
+		{"every 2-29", `"2-29" is not a date of the year written MM-DD`, `write it "every 02-29"`},
+		{"every 2-30", `"2-30" is not a date of the year (MM-DD: a month 01..12, then a day that month has)`, `e.g. "every 04-25"; "every 02-29" is in leap years only`},
+		{"every 2027-06-12", `"2027-06-12" is one date, not a date of every year`, `for that date alone, write it without "every"; for every year, "every MM-DD"`},
+		{"2027-6-12", "not a date", "write it 2027-06-12"},
+		{"2027/06/12", "not a date", "write it 2027-06-12"},
+		{"12-06-2027", "not a date", "write YYYY-MM-DD, the year first, e.g. 2027-06-12"},
+		{"2028-02-30", "not a date", "February 2028 has 29 days"},
+		{"2201-01-01", "outside the supported range 1800-01-01..2200-12-31", "the sky is computed for these dates only"},
+	} {
+		_, err := ParseDateRule(tc.in)
+		var re *RuleError
+		if !errors.As(err, &re) || re.Msg != tc.msg || re.Hint != tc.hint {
+			t.Errorf("%q: %v, want %s (%s)", tc.in, err, tc.msg, tc.hint)
+		}
+	}
+}
+
 // TestParseTimeSpec reads clock times and events with offsets.
 func TestParseTimeSpec(t *testing.T) {
 	for _, tc := range []struct {

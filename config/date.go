@@ -1,0 +1,102 @@
+package config
+
+import (
+	"fmt"
+	"strconv"
+	"strings"
+	"time"
+)
+
+// dateForm is the hint for text that is no date at all.
+const dateForm = "write YYYY-MM-DD, e.g. 2027-06-12"
+
+// parseDate reads a date as every date of the file is written, in YAML,
+// TOML and JSON alike: YYYY-MM-DD, four digits of the year, two of the
+// month and two of the day, a date the Gregorian calendar has. Anything
+// else is a "not a date" *RuleError whose hint says how to write it
+// (dateHint).
+func parseDate(s string) (time.Time, *RuleError) {
+	t := strings.TrimSpace(s)
+	d, err := time.Parse(time.DateOnly, t)
+	if err != nil {
+		return time.Time{}, &RuleError{Msg: "not a date", Hint: dateHint(t)}
+	}
+	return d, nil
+}
+
+// dateHint says how to write the date s, which time.DateOnly refused:
+// "write it 2027-06-12" for a date of one-digit month or day ("2027-6-12")
+// or other separators ("2027/06/12"), "write the year in full: 2027-06-12"
+// for a two-digit year ("27-06-12": a feed's window is around today, so
+// the year is 20YY), the days of the month for a day it does not have
+// ("2027-02-30": February 2027 has 28 days), and the form for the rest.
+func dateHint(s string) string {
+	parts := strings.FieldsFunc(s, func(r rune) bool { return r == '-' || r == '/' || r == '.' })
+	if len(parts) != 3 || len(parts[0])+len(parts[1])+len(parts[2])+2 != len(s) {
+		return dateForm
+	}
+	var n [3]int
+	for i, p := range parts {
+		v, err := strconv.Atoi(p)
+		if err != nil || v < 0 || strings.ContainsAny(p, "+-") {
+			return dateForm
+		}
+		n[i] = v
+	}
+	year, month, day := n[0], n[1], n[2]
+	switch {
+	case len(parts[2]) == 4 && len(parts[0]) <= 2:
+		return "write YYYY-MM-DD, the year first, e.g. 2027-06-12"
+	case len(parts[0]) == 2:
+		year += 2000
+	case len(parts[0]) != 4 || len(parts[1]) > 2 || len(parts[2]) > 2:
+		return dateForm
+	}
+	if month < 1 || month > 12 {
+		return "a month is 01..12: " + dateForm
+	}
+	if last := daysIn(time.Month(month), year); day < 1 || day > last {
+		return fmt.Sprintf("%s %d has %d days", time.Month(month), year, last)
+	}
+	if len(parts[0]) == 2 {
+		return fmt.Sprintf("write the year in full: %04d-%02d-%02d", year, month, day)
+	}
+	return fmt.Sprintf("write it %04d-%02d-%02d", year, month, day)
+}
+
+// daysIn is the number of days of month m of year y (Gregorian calendar).
+func daysIn(m time.Month, y int) int {
+	return time.Date(y, m+1, 0, 0, 0, 0, 0, time.UTC).Day()
+}
+
+// isDateLike reports whether s is written as a date, three groups of
+// digits joined by '-', '/' or '.' ("2027-6-12", "27-06-12"), rather than
+// as words: a plan's date rule of one such word is a date, whatever is
+// wrong with it, and not a kind.
+func isDateLike(s string) bool {
+	groups, digits := 1, 0
+	for i := 0; i < len(s); i++ {
+		switch c := s[i]; {
+		case c >= '0' && c <= '9':
+			digits++
+		case (c == '-' || c == '/' || c == '.') && digits > 0 && i+1 < len(s):
+			groups, digits = groups+1, 0
+		default:
+			return false
+		}
+	}
+	return groups == 3 && digits > 0
+}
+
+// monthDay reads a date of the year written as two groups of one or two
+// digits joined by '-' ("06-12", "6-12", "13-01"), whether or not it is a
+// date of the year, and returns its month and day.
+func monthDay(s string) (month, day int, ok bool) {
+	m, d, found := strings.Cut(s, "-")
+	if !found || len(m) < 1 || len(m) > 2 || len(d) < 1 || len(d) > 2 || strings.Trim(m+d, "0123456789") != "" {
+		return 0, 0, false
+	}
+	month, _ = strconv.Atoi(m)
+	day, _ = strconv.Atoi(d)
+	return month, day, true
+}

@@ -30,7 +30,9 @@ when it is valid, build every feed once and print the sites, the feeds, their ev
 and sizes. A feed larger than service.max_feed_bytes gets a warning: some widely used web
 calendars are reported to drop events from subscriptions over about 1 MB. A lighting
 latest_off (earliest_on) that comes before the evening lamps start (after the morning lamps
-end) on some dates, and so does not limit them there, gets a warning too.
+end) on some dates, and so does not limit them there, gets a warning too, as does a
+date a kinds entry lists or a plan is on outside the feed's window: before it, the date is
+never published; after it, only once the window reaches it.
 
 --format json prints one JSON document on standard output for scripts: the sites and feeds
 of a valid configuration, or {"valid": false, "problems": [...]} with one object per
@@ -225,6 +227,7 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		for _, w := range lampLimitWarnings(&f, cal) {
 			r.Warnings = append(r.Warnings, w.text)
 		}
+		r.Warnings = append(r.Warnings, datesOutsideWindow(&f, shown, cal)...)
 		if over {
 			r.Warnings = append(r.Warnings, publish.OversizeWarning(f.ID, len(data), limit))
 		}

@@ -1,0 +1,75 @@
+package main
+
+import (
+	"fmt"
+	"strings"
+	"time"
+
+	"heliocal/config"
+	"heliocal/feed"
+)
+
+// datesOutsideWindow words the dates that the entries of feed f name one by
+// one (a kinds entry's dates list, a plan's one date) and that lie outside
+// the feed's window as cal was built for it: a date before the window's
+// start is never published; one after its end is published only once the
+// window, which rolls with each day, reaches it, days_ahead days before it.
+// shown are the kinds entries as check's table writes them. One warning per
+// date and side, naming every entry that lists the date.
+func datesOutsideWindow(f *config.Feed, shown []string, cal *feed.Calendar) []string {
+	first, last := windowDates(cal)
+	var order []time.Time             // the dates outside, in the order first named
+	named := map[time.Time][]string{} // the entries naming each
+	add := func(entry string, d time.Time) {
+		if !d.Before(first) && !d.After(last) {
+			return
+		}
+		if _, ok := named[d]; !ok {
+			order = append(order, d)
+		}
+		named[d] = append(named[d], entry)
+	}
+	for i, k := range f.Kinds {
+		for _, s := range k.Dates {
+			if d, err := config.ParseListedDate(s); err == nil {
+				add(shown[i], d)
+			}
+		}
+	}
+	for _, p := range f.Plans {
+		if r, err := config.ParseDateRule(p.Date); err == nil && r.Type == config.RuleOnce {
+			add(fmt.Sprintf("plan %q", p.Title), r.Date)
+		}
+	}
+	out := make([]string, 0, len(order))
+	for _, d := range order {
+		entries := andList(named[d])
+		if d.Before(first) {
+			out = append(out, fmt.Sprintf("feed %q: %s: %s is before the window's start %s (days_back: %d): it will never be published",
+				f.ID, entries, d.Format(time.DateOnly), first.Format(time.DateOnly), f.DaysBack))
+			continue
+		}
+		out = append(out, fmt.Sprintf("feed %q: %s: %s is after the window's end %s (days_ahead: %d): it will be published from %s, when the window reaches it",
+			f.ID, entries, d.Format(time.DateOnly), last.Format(time.DateOnly), f.DaysAhead, d.AddDate(0, 0, -f.DaysAhead).Format(time.DateOnly)))
+	}
+	return out
+}
+
+// windowDates are the first and last local dates (00:00 UTC) of the window
+// cal was built over: the date its start falls on in the site's zone, and
+// the date before the one its end falls on.
+func windowDates(cal *feed.Calendar) (first, last time.Time) {
+	date := func(t time.Time) time.Time {
+		t = t.In(cal.Site.Location)
+		return time.Date(t.Year(), t.Month(), t.Day(), 0, 0, 0, 0, time.UTC)
+	}
+	return date(cal.WindowStart), date(cal.WindowEnd).AddDate(0, 0, -1)
+}
+
+// andList joins words as a sentence lists them: "a", "a and b", "a, b and c".
+func andList(words []string) string {
+	if len(words) < 2 {
+		return strings.Join(words, "")
+	}
+	return strings.Join(words[:len(words)-1], ", ") + " and " + words[len(words)-1]
+}

@@ -14,23 +14,24 @@ const dateForm = "write YYYY-MM-DD, e.g. 2027-06-12"
 // TOML and JSON alike: YYYY-MM-DD, four digits of the year, two of the
 // month and two of the day, a date the Gregorian calendar has. Anything
 // else is a "not a date" *RuleError whose hint says how to write it
-// (dateHint).
+// (DateHint).
 func parseDate(s string) (time.Time, *RuleError) {
 	t := strings.TrimSpace(s)
 	d, err := time.Parse(time.DateOnly, t)
 	if err != nil {
-		return time.Time{}, &RuleError{Msg: "not a date", Hint: dateHint(t)}
+		return time.Time{}, &RuleError{Msg: "not a date", Hint: DateHint(t)}
 	}
 	return d, nil
 }
 
-// dateHint says how to write the date s, which time.DateOnly refused:
+// DateHint says how to write the date s, which time.DateOnly refused:
 // "write it 2027-06-12" for a date of one-digit month or day ("2027-6-12")
 // or other separators ("2027/06/12"), "write the year in full: 2027-06-12"
 // for a two-digit year ("27-06-12": a feed's window is around today, so
 // the year is 20YY), the days of the month for a day it does not have
 // ("2027-02-30": February 2027 has 28 days), and the form for the rest.
-func dateHint(s string) string {
+// The configuration's dates and the command line's give the same hint.
+func DateHint(s string) string {
 	parts := strings.FieldsFunc(s, func(r rune) bool { return r == '-' || r == '/' || r == '.' })
 	if len(parts) != 3 || len(parts[0])+len(parts[1])+len(parts[2])+2 != len(s) {
 		return dateForm

@@ -210,7 +210,7 @@ func feedPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 func parseDate(flag, v string) (time.Time, error) {
 	d, err := time.Parse(time.DateOnly, v)
 	if err != nil {
-		return time.Time{}, badInput("%s: %q: not a date, use YYYY-MM-DD", flag, v)
+		return time.Time{}, badInput("%s: %q: not a date (%s)", flag, v, config.DateHint(strings.TrimSpace(v)))
 	}
 	return d, nil
 }

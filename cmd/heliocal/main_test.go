@@ -209,6 +209,9 @@ func TestEventsBadInput(t *testing.T) {
 		{"kind twice in a group, flag", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "seasons,june-solstice"},
 			`--kinds: "seasons,june-solstice": "june-solstice" listed twice (also in "seasons") (give each kind once)`},
 		{"date", []string{"events", "--lat", "0", "--lon", "0", "--from", "2027-13-01"}, "--from: \"2027-13-01\""},
+		// a date of the command line is written as the configuration's, with the same hint
+		{"one-digit month", []string{"events", "--lat", "0", "--lon", "0", "--from", "2027-6-12"}, `heliocal: --from: "2027-6-12": not a date (write it 2027-06-12)` + "\n"},
+		{"two-digit year", []string{"events", "--lat", "0", "--lon", "0", "--to", "27-06-12"}, `heliocal: --to: "27-06-12": not a date (write the year in full: 2027-06-12)` + "\n"},
 		{"order", []string{"events", "--lat", "0", "--lon", "0", "--from", "2027-02-01", "--to", "2027-01-01"}, "--to"},
 		{"range", []string{"events", "--lat", "0", "--lon", "0", "--from", "1700-01-01", "--to", "1700-01-02"}, "1700"},
 		{"format", []string{"events", "--lat", "0", "--lon", "0", "--format", "xml"}, "--format: \"xml\""},

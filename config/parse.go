@@ -285,8 +285,11 @@ func tomlValueAt(data []byte, row, col int) string {
 	return key + ": " + value + ": "
 }
 
-// maxQuotedDates bounds the values quoteTOMLDates quotes in one file.
-const maxQuotedDates = 1000
+// quoteBudget bounds the bytes quoteTOMLDates has the TOML parser read
+// again, once per value it quotes: a thousand values in a file of 32 kB,
+// a few in one of megabytes (hostile input is then refused as it is
+// written, without the time of a parse per value).
+const quoteBudget = 32 << 20
 
 // quoteTOMLDates puts in quotes each unquoted value written as a date that
 // the TOML parser refuses ("2027-6-12", "27-06-12", "2027-02-30": TOML
@@ -303,13 +306,14 @@ func quoteTOMLDates(data, decoded []byte) (out []byte, ok bool) {
 			out, ok = nil, false // hostile input: the reader reports it
 		}
 	}()
-	for i := range maxQuotedDates + 1 {
+	most := quoteBudget / max(len(decoded), 1)
+	for i := range most + 1 {
 		var m map[string]any
 		err := toml.Unmarshal(decoded, &m)
 		if err == nil {
 			return data, i > 0
 		}
-		if i == maxQuotedDates {
+		if i == most {
 			break
 		}
 		var pos interface{ Position() (int, int) }

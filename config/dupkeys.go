@@ -183,7 +183,11 @@ func keepDateAsWritten(n *yaml.Node) {
 	if n.Kind != yaml.ScalarNode || n.Tag != "!!timestamp" || n.Style&yaml.TaggedStyle != 0 {
 		return
 	}
-	if date, _, _ := strings.Cut(strings.NewReplacer("t", "T", " ", "T").Replace(n.Value), "T"); len(date) != len(time.DateOnly) {
+	date := n.Value
+	if i := strings.IndexAny(date, "Tt "); i >= 0 {
+		date = date[:i] // the time of "2027-6-12T10:00:00Z"
+	}
+	if len(date) != len(time.DateOnly) {
 		n.Tag = "!!str"
 	}
 }

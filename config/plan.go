@@ -242,7 +242,7 @@ func parseDateRule(f []string) (DateRule, *RuleError) {
 		if m, d, ok := monthDay(f[1]); ok {
 			// written as a date of the year: one-digit ("6-12"), or no
 			// date of the year ("02-30", "13-01")
-			if m >= 1 && m <= 12 && d >= 1 && d <= daysIn(time.Month(m), 2028) {
+			if m >= 1 && m <= 12 && d >= 1 && d <= daysIn(time.Month(m), 2028) { // a leap year: 2-29 is a date of the year
 				return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is not a date of the year written MM-DD", f[1]),
 					Hint: fmt.Sprintf(`write it "every %02d-%02d"`, m, d)}
 			}

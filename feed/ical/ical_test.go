@@ -131,8 +131,10 @@ func wantTimes(e *feed.Entry) (start, end time.Time) {
 		}
 		return start, end
 	}
-	start = e.Start.UTC().Round(time.Second)
-	end = e.End.UTC().Round(time.Second)
+	// Shown to the second as every output shows an instant: to the
+	// millisecond first, as JSON does, then to the second (feed/round.go).
+	start = e.Start.UTC().Round(time.Millisecond).Round(time.Second)
+	end = e.End.UTC().Round(time.Millisecond).Round(time.Second)
 	if !end.After(start) {
 		end = start.Add(time.Minute)
 	}

@@ -73,7 +73,7 @@ func (r readBack) compare(t *testing.T, who string, c *feed.Calendar) {
 			}
 			continue
 		}
-		want := e.Start.Round(time.Second).Unix()
+		want := e.Start.Round(time.Millisecond).Round(time.Second).Unix() // as wantTimes
 		if got, ok := r.timed[e.UID]; (!ok || got != want) && bad < 5 {
 			bad++
 			t.Errorf("%s: %s starts at %s, want %s (%s local)", who, e.UID, time.Unix(got, 0).UTC().Format(time.RFC3339),

@@ -31,8 +31,8 @@ and sizes. A feed larger than service.max_feed_bytes gets a warning: some widely
 calendars are reported to drop events from subscriptions over about 1 MB. A lighting
 latest_off (earliest_on) that comes before the evening lamps start (after the morning lamps
 end) on some dates, and so does not limit them there, gets a warning too, as does a
-date a kinds entry lists or a plan is on outside the feed's window: before it, the date is
-never published; after it, only once the window reaches it.
+date a kinds entry lists or a plan is on before the feed's window: it is never published.
+One after the window gets a note: it is published once the window reaches it.
 
 --format json prints one JSON document on standard output for scripts: the sites and feeds
 of a valid configuration, or {"valid": false, "problems": [...]} with one object per
@@ -62,6 +62,9 @@ type checkReport struct {
 	Sites         []checkSite    `json:"sites"`
 	Feeds         []checkFeed    `json:"feeds"`
 	Warnings      []string       `json:"warnings"`
+	// Notes are what check tells that needs no change: a listed date after
+	// a feed's window, published once the window reaches it.
+	Notes []string `json:"notes"`
 }
 
 type checkProblem struct {
@@ -126,7 +129,7 @@ func writeCheckJSON(g *globals, r *checkReport) error {
 // is returned unchanged for the exit code, without a second listing.
 func checkProblems(g *globals, src config.Source, err error) error {
 	var ve *config.ValidationError
-	r := &checkReport{Configuration: src.String(), Sites: []checkSite{}, Feeds: []checkFeed{}, Warnings: []string{}}
+	r := &checkReport{Configuration: src.String(), Sites: []checkSite{}, Feeds: []checkFeed{}, Warnings: []string{}, Notes: []string{}}
 	if errors.As(err, &ve) {
 		for _, p := range ve.Problems {
 			r.Problems = append(r.Problems, checkProblem{Field: p.Path, Value: p.Value, Message: p.Msg, Hint: p.Hint})
@@ -186,7 +189,7 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 	if err != nil {
 		return nil, nil, err
 	}
-	r := &checkReport{Configuration: src.String(), Valid: true, Sites: []checkSite{}, Feeds: []checkFeed{}, Warnings: []string{}}
+	r := &checkReport{Configuration: src.String(), Valid: true, Sites: []checkSite{}, Feeds: []checkFeed{}, Warnings: []string{}, Notes: []string{}}
 	var notes []string
 	for _, s := range cfg.Sites {
 		r.Sites = append(r.Sites, checkSite{ID: s.ID, sitePlace: placeOf(&s), SkylineFile: s.HorizonFile,
@@ -227,7 +230,9 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		for _, w := range lampLimitWarnings(&f, cal) {
 			r.Warnings = append(r.Warnings, w.text)
 		}
-		r.Warnings = append(r.Warnings, datesOutsideWindow(&f, shown, cal)...)
+		warnings, later := datesOutsideWindow(&f, shown, cal)
+		r.Warnings = append(r.Warnings, warnings...)
+		r.Notes = append(r.Notes, later...)
 		if over {
 			r.Warnings = append(r.Warnings, publish.OversizeWarning(f.ID, len(data), limit))
 		}
@@ -269,6 +274,9 @@ func writeCheckText(g *globals, r *checkReport, notes []string) error {
 		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%d\t%s\n", f.ID, f.Site, strings.Join(kinds, ","), window(f.DaysBack, f.DaysAhead), f.Events, size(f.Bytes))
 	}
 	tw.Flush()
+	for _, n := range r.Notes {
+		fmt.Fprintln(w, "note: "+n)
+	}
 	_, err := g.stdout.Write(w.Bytes())
 	for _, wmsg := range r.Warnings {
 		fmt.Fprintln(g.stderr, "warning: "+wmsg)

@@ -19,6 +19,12 @@ import (
 // cfg on the date now.
 func checkWarnings(t *testing.T, cfg string, now time.Time) []string {
 	t.Helper()
+	return checkReportOf(t, cfg, now).Warnings
+}
+
+// checkReportOf is check's report on the YAML configuration cfg at now.
+func checkReportOf(t *testing.T, cfg string, now time.Time) *checkReport {
+	t.Helper()
 	c, err := config.Parse(strings.NewReader(cfg), "yaml")
 	if err != nil {
 		t.Fatal(err)
@@ -27,7 +33,7 @@ func checkWarnings(t *testing.T, cfg string, now time.Time) []string {
 	if err != nil {
 		t.Fatal(err)
 	}
-	return r.Warnings
+	return r
 }
 
 // wantWarningsStart checks that the lamp warnings got are as many as want

@@ -12,11 +12,12 @@ import (
 // datesOutsideWindow words the dates that the entries of feed f name one by
 // one (a kinds entry's dates list, a plan's one date) and that lie outside
 // the feed's window as cal was built for it: a date before the window's
-// start is never published; one after its end is published only once the
-// window, which rolls with each day, reaches it, days_ahead days before it.
-// shown are the kinds entries as check's table writes them. One warning per
-// date and side, naming every entry that lists the date.
-func datesOutsideWindow(f *config.Feed, shown []string, cal *feed.Calendar) []string {
+// start is never published (a warning); one after its end is published
+// once the window, which rolls with each day, reaches it, days_ahead days
+// before it (a note: next year's wedding dates are listed ahead). shown are
+// the kinds entries as check's table writes them. One line per date and
+// side, naming every entry that lists the date.
+func datesOutsideWindow(f *config.Feed, shown []string, cal *feed.Calendar) (warnings, notes []string) {
 	first, last := windowDates(cal)
 	var order []time.Time             // the dates outside, in the order first named
 	named := map[time.Time][]string{} // the entries naming each
@@ -41,18 +42,17 @@ func datesOutsideWindow(f *config.Feed, shown []string, cal *feed.Calendar) []st
 			add(fmt.Sprintf("plan %q", p.Title), r.Date)
 		}
 	}
-	out := make([]string, 0, len(order))
 	for _, d := range order {
 		entries := andList(named[d])
 		if d.Before(first) {
-			out = append(out, fmt.Sprintf("feed %q: %s: %s is before the window's start %s (days_back: %d): it will never be published",
+			warnings = append(warnings, fmt.Sprintf("feed %q: %s: %s is before the window's start %s (days_back: %d): it will never be published",
 				f.ID, entries, d.Format(time.DateOnly), first.Format(time.DateOnly), f.DaysBack))
 			continue
 		}
-		out = append(out, fmt.Sprintf("feed %q: %s: %s is after the window's end %s (days_ahead: %d): it will be published from %s, when the window reaches it",
+		notes = append(notes, fmt.Sprintf("feed %q: %s: %s is after the window's end %s (days_ahead: %d): it will be published from %s, when the window reaches it",
 			f.ID, entries, d.Format(time.DateOnly), last.Format(time.DateOnly), f.DaysAhead, d.AddDate(0, 0, -f.DaysAhead).Format(time.DateOnly)))
 	}
-	return out
+	return warnings, notes
 }
 
 // windowDates are the first and last local dates (00:00 UTC) of the window

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"encoding/json"
 	"slices"
 	"strings"
 	"testing"
@@ -34,40 +35,45 @@ feeds:
 
 var windowNow = time.Date(2027, 1, 15, 12, 0, 0, 0, time.UTC)
 
-// check warns about a listed date and a plan's date outside the feed's
-// window: before its start, never published; after its end, published
-// once the window reaches it, days_ahead days before the date. The
-// window's own first and last dates, and a yearly plan, give no warning.
+// check warns about a listed date and a plan's date before the feed's
+// window, never published, and notes one after its end, published once
+// the window reaches it, days_ahead days before the date. The window's own
+// first and last dates, and a yearly plan, give neither.
 func TestDatesOutsideWindowWarning(t *testing.T) {
-	got := checkWarnings(t, windowFeed, windowNow)
+	r := checkReportOf(t, windowFeed, windowNow)
 	want := []string{
 		`feed "kauri-weddings": golden-hour: 2027-01-05 is before the window's start 2027-01-06 (days_back: 10): it will never be published`,
+	}
+	if !slices.Equal(r.Warnings, want) {
+		t.Errorf("warnings:\n%s\nwant:\n%s", strings.Join(r.Warnings, "\n"), strings.Join(want, "\n"))
+	}
+	want = []string{
 		`feed "kauri-weddings": golden-hour, sunset-15m and plan "Open day": 2027-02-06 is after the window's end 2027-02-05 (days_ahead: 20): it will be published from 2027-01-17, when the window reaches it`,
 	}
-	if !slices.Equal(got, want) {
-		t.Errorf("warnings:\n%s\nwant:\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
+	if !slices.Equal(r.Notes, want) {
+		t.Errorf("notes:\n%s\nwant:\n%s", strings.Join(r.Notes, "\n"), strings.Join(want, "\n"))
 	}
 	// a day later the window runs 2027-01-07..2027-02-06: the plan of
 	// 2027-01-06 is left behind with the first listed date, and 2027-02-06
 	// is published
-	got = checkWarnings(t, windowFeed, windowNow.AddDate(0, 0, 1))
-	if len(got) != 2 || !strings.HasPrefix(got[1], `feed "kauri-weddings": golden-hour and plan "Fair": 2027-01-06 is before the window's start 2027-01-07 (days_back: 10)`) {
-		t.Errorf("a day later:\n%s", strings.Join(got, "\n"))
+	r = checkReportOf(t, windowFeed, windowNow.AddDate(0, 0, 1))
+	if len(r.Warnings) != 2 || len(r.Notes) != 0 || !strings.HasPrefix(r.Warnings[1], `feed "kauri-weddings": golden-hour and plan "Fair": 2027-01-06 is before the window's start 2027-01-07 (days_back: 10)`) {
+		t.Errorf("a day later:\n%s\nnotes:\n%s", strings.Join(r.Warnings, "\n"), strings.Join(r.Notes, "\n"))
 	}
 }
 
 // No warning when every listed date and plan date lies within the window.
 func TestDatesInsideWindowNoWarning(t *testing.T) {
 	inside := strings.NewReplacer("2027-01-05, ", "", ", 2027-02-06]", "]", "[2027-02-06]", "[2027-02-01]", "date: 2027-02-06", "date: 2027-01-20").Replace(windowFeed)
-	if got := checkWarnings(t, inside, windowNow); len(got) != 0 {
-		t.Errorf("warnings for dates inside the window:\n%s", strings.Join(got, "\n"))
+	if r := checkReportOf(t, inside, windowNow); len(r.Warnings)+len(r.Notes) != 0 {
+		t.Errorf("warnings or notes for dates inside the window:\n%s", strings.Join(append(r.Warnings, r.Notes...), "\n"))
 	}
 }
 
 // The warning is written as check's other warnings, on standard error
-// after "warning: ", and check still exits 0: dates the window never
-// reaches (1900) or reaches only in years (2200), whatever the day the
-// test runs.
+// after "warning: ", the note after the feeds on standard output after
+// "note: ", and check still exits 0: dates the window never reaches (1900)
+// or reaches only in years (2200), whatever the day the test runs.
 func TestDatesOutsideWindowCheckOutput(t *testing.T) {
 	cfg := writeConfig(t, `sites:
   - {id: kauri-hill, latitude: -36.85, longitude: 174.76, timezone: Pacific/Auckland}
@@ -83,15 +89,21 @@ feeds:
 		t.Fatalf("exit %d:\n%s%s", code, out, errOut)
 	}
 	lines := strings.Split(strings.TrimSpace(errOut), "\n")
-	if len(lines) != 2 ||
+	if len(lines) != 1 ||
 		!strings.HasPrefix(lines[0], `warning: feed "kauri-weddings": sunset: 1900-01-01 is before the window's start `) ||
-		!strings.HasSuffix(lines[0], "(days_back: 30): it will never be published") ||
-		!strings.HasPrefix(lines[1], `warning: feed "kauri-weddings": sunset: 2200-12-31 is after the window's end `) ||
-		!strings.HasSuffix(lines[1], "(days_ahead: 30): it will be published from 2200-12-01, when the window reaches it") {
+		!strings.HasSuffix(lines[0], "(days_back: 30): it will never be published") {
 		t.Errorf("stderr:\n%s", errOut)
 	}
+	last := out[strings.LastIndex(strings.TrimSuffix(out, "\n"), "\n")+1:]
+	if !strings.HasPrefix(last, `note: feed "kauri-weddings": sunset: 2200-12-31 is after the window's end `) ||
+		!strings.HasSuffix(last, "(days_ahead: 30): it will be published from 2200-12-01, when the window reaches it\n") {
+		t.Errorf("stdout's last line %q, want the note", last)
+	}
 	_, js, _ := runCLI(t, "check", "--config", cfg, "--format", "json")
-	if !strings.Contains(js, `"feed \"kauri-weddings\": sunset: 1900-01-01 is before the window's start`) {
-		t.Errorf("JSON warnings lack the date:\n%s", js)
+	var doc struct{ Warnings, Notes []string }
+	if err := json.Unmarshal([]byte(js), &doc); err != nil || len(doc.Warnings) != 1 || len(doc.Notes) != 1 ||
+		!strings.Contains(doc.Warnings[0], `sunset: 1900-01-01 is before the window's start`) ||
+		!strings.Contains(doc.Notes[0], `sunset: 2200-12-31 is after the window's end`) {
+		t.Errorf("JSON warnings and notes (%v):\n%s", err, js)
 	}
 }

@@ -362,6 +362,15 @@ func TestRiseSetAltitude(t *testing.T) {
 	if got := (Observer{Horizon: 2}).RiseSetAltitude(); math.Abs(got-1.43) > 0.02 {
 		t.Errorf("skyline 2°: %g", got)
 	}
+	// A skyline below −1° (from a summit) takes the refraction at −1°:
+	// Bennett's formula (Meeus eq. 16.4) there, cot(−1° + 7.31°/3.4) =
+	// 49.82′, holds for any lower skyline, where the formula itself would
+	// grow to its pole near −2.5° and turn negative beyond.
+	for _, h := range []float64{-1, -1.5, -3, -5} {
+		if got, want := (Observer{Horizon: h}).RiseSetAltitude(), h-49.82/60-16.0/60; math.Abs(got-want) > 0.0005 {
+			t.Errorf("skyline %g°: %g, want %g", h, got, want)
+		}
+	}
 	// A skyline at 0° with the dip ignored: the standard altitude within 0.01°.
 	if got := (Observer{Horizon: 1e-9, Elevation: 500}).RiseSetAltitude(); math.Abs(got-SunriseAltitude) > 0.01 {
 		t.Errorf("skyline 0°: %g", got)

@@ -568,6 +568,12 @@ func applyDefaults(c *Config, explicit map[int][2]bool) {
 		if f.Title == "" {
 			f.Title = f.ID
 		}
+		// a YAML block (description: |) ends in a line break, which would
+		// leave an empty line more before what the texts add after it
+		f.Description = strings.TrimRight(f.Description, " \t\r\n")
+		for j := range f.Plans {
+			f.Plans[j].Description = strings.TrimRight(f.Plans[j].Description, " \t\r\n")
+		}
 		set := explicit[i]
 		if !set[0] && f.DaysBack == 0 {
 			f.DaysBack = DefaultDaysBack

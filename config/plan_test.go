@@ -231,3 +231,32 @@ func TestPlanTimeNotInstant(t *testing.T) {
 		t.Errorf("the hint names %d kinds, want %d: %s", len(named), len(instantNames), instantHint)
 	}
 }
+
+// A description written as a YAML block (description: |) keeps its lines
+// but not the line break the block ends in (YAML 1.2 §8.1.1.2: a block's
+// final line break is kept by default, "clip"), so that the calendar's and
+// a plan's texts after it do not begin after an empty line more.
+func TestDescriptionBlockTrailingBreak(t *testing.T) {
+	c, err := Parse(strings.NewReader(`sites:
+  - {id: s, latitude: 48.2, longitude: 16.4, timezone: Europe/Vienna}
+feeds:
+  - id: f
+    site: s
+    description: |
+      Lines for the farm.
+      Second line.
+    kinds: [sunrise]
+    plans:
+      - title: Frost
+        date: every 04-25
+        description: |
+          Cover the seedlings.
+`), "yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	f := c.Feeds[0]
+	if f.Description != "Lines for the farm.\nSecond line." || f.Plans[0].Description != "Cover the seedlings." {
+		t.Errorf("descriptions %q and %q, want them without the block's last line break", f.Description, f.Plans[0].Description)
+	}
+}

@@ -83,8 +83,10 @@ func referenceEvent(w *writer, e *feed.Entry) (*ics.VEvent, error) {
 		ev.SetAllDayStartAt(start) // DTSTART;VALUE=DATE
 		ev.SetAllDayEndAt(end)     // exclusive DTEND;VALUE=DATE
 	} else {
-		start := e.Start.UTC().Round(time.Second)
-		end := e.End.UTC().Round(time.Second)
+		// to the millisecond, as JSON shows it, then to the second, the
+		// rule of every output (feed/round.go), in two steps here
+		start := e.Start.UTC().Round(time.Millisecond).Round(time.Second)
+		end := e.End.UTC().Round(time.Millisecond).Round(time.Second)
 		if !end.After(start) {
 			end = start.Add(instantLength)
 		}

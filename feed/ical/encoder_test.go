@@ -38,6 +38,47 @@ func TestEncoderReuse(t *testing.T) {
 	}
 }
 
+// TestEncoderAppendSizes: AppendSizes writes Append's bytes and gives each
+// entry the bytes of its VEVENT, from its BEGIN:VEVENT line to its
+// END:VEVENT line (its VALARM within), as the file read back splits them;
+// after a failing calendar the sizes are as they were.
+func TestEncoderAppendSizes(t *testing.T) {
+	const begin, end = "BEGIN:VEVENT\r\n", "END:VEVENT\r\n"
+	enc := NewEncoder(Options{Version: "test"})
+	var buf []byte
+	sizes := []int{-1}
+	for i, c := range encoderCalendars(t, 5, 30) {
+		want, werr := Marshal(c, Options{Version: "test"})
+		got, gotSizes, err := enc.AppendSizes(buf[:0], c, sizes[:1])
+		if (err != nil) != (werr != nil) {
+			t.Fatalf("calendar %d: error %v, Marshal's %v", i, err, werr)
+		}
+		if err != nil {
+			if len(gotSizes) != 1 || gotSizes[0] != -1 {
+				t.Fatalf("calendar %d: failed AppendSizes gave sizes %v, want [-1]", i, gotSizes)
+			}
+			continue
+		}
+		if !bytes.Equal(got, want) {
+			t.Fatalf("calendar %d: AppendSizes wrote %d bytes differing from Marshal's %d", i, len(got), len(want))
+		}
+		var split []int
+		for rest := want; ; {
+			at := bytes.Index(rest, []byte(begin))
+			if at < 0 {
+				break
+			}
+			n := bytes.Index(rest[at:], []byte(end)) + len(end)
+			split = append(split, n)
+			rest = rest[at+n:]
+		}
+		if len(split) != len(c.Entries) || gotSizes[0] != -1 || fmt.Sprint(gotSizes[1:]) != fmt.Sprint(split) {
+			t.Fatalf("calendar %d of %d entries: sizes %v, the file's VEVENTs %v", i, len(c.Entries), gotSizes[1:], split)
+		}
+		buf, sizes = got, gotSizes
+	}
+}
+
 // encoderCalendars are calendars for one Encoder to write one after
 // another: site-years in three zones, then n random calendars from seed.
 func encoderCalendars(t *testing.T, seed int64, n int) []*feed.Calendar {

@@ -200,7 +200,11 @@ func (ev *vevent) SerializeTo(out io.Writer, cfg *ics.SerializationConfiguration
 	w := ev.w
 	w.setLines(cfg)
 	if aw, ok := out.(*appendWriter); ok {
+		n := len(aw.b)
 		aw.b = ev.appendTo(aw.b)
+		if aw.sizing {
+			aw.sizes = append(aw.sizes, len(aw.b)-n)
+		}
 		aw.pieceDone()
 		return aw.err
 	}

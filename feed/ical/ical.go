@@ -129,9 +129,24 @@ func NewEncoder(opts Options) *Encoder { return &Encoder{opts: opts} }
 // (dst is grown once, to the estimated size, when it has too little room).
 // On error dst is returned unchanged, with nothing appended.
 func (e *Encoder) Append(dst []byte, c *feed.Calendar) ([]byte, error) {
+	dst, _, err := e.appendFile(dst, c, nil, false)
+	return dst, err
+}
+
+// AppendSizes is Append that also appends to sizes, in the order of
+// c.Entries, the bytes each entry's VEVENT takes in the file (its VALARM
+// included), and returns the extended slice: what is left of the file is
+// its fixed part, the header, the VTIMEZONE and the end. On error dst and
+// sizes are returned unchanged.
+func (e *Encoder) AppendSizes(dst []byte, c *feed.Calendar, sizes []int) ([]byte, []int, error) {
+	return e.appendFile(dst, c, sizes, true)
+}
+
+// appendFile is Append, and AppendSizes when sizing.
+func (e *Encoder) appendFile(dst []byte, c *feed.Calendar, sizes []int, sizing bool) ([]byte, []int, error) {
 	cal, size, err := e.build(c)
 	if err != nil {
-		return dst, err
+		return dst, sizes, err
 	}
 	if cap(dst)-len(dst) < size {
 		// make, unlike bytes.Buffer.Grow, does not clear memory fresh from
@@ -140,13 +155,13 @@ func (e *Encoder) Append(dst []byte, c *feed.Calendar) ([]byte, error) {
 		copy(grown, dst)
 		dst = grown
 	}
-	out := &appendWriter{b: dst}
+	out := &appendWriter{b: dst, sizes: sizes, sizing: sizing}
 	err = cal.SerializeTo(out, ics.WithNewLineWindows)
 	e.release(cal)
 	if err != nil {
-		return dst, fmt.Errorf("ical: calendar %q: %w", c.ID, err)
+		return dst, sizes, fmt.Errorf("ical: calendar %q: %w", c.ID, err)
 	}
-	return out.b, nil
+	return out.b, out.sizes, nil
 }
 
 // WriteTo writes c's iCalendar file to out, the bytes of Marshal, in
@@ -186,6 +201,9 @@ type appendWriter struct {
 	out io.Writer
 	n   int64 // bytes written to out
 	err error // out's first error; nothing is written after it
+	// sizes, when sizing, gets each event's bytes (see AppendSizes).
+	sizes  []int
+	sizing bool
 }
 
 func (a *appendWriter) Write(p []byte) (int, error) {

@@ -269,11 +269,11 @@ func (s *Server) fitDays(ctx context.Context, q AdhocQuery, most int) (int, erro
 	if sz.enc == nil || sz.version != s.opts.Version {
 		sz.enc, sz.version = ical.NewEncoder(ical.Options{Version: s.opts.Version}), s.opts.Version
 	}
-	sz.buf, err = sz.enc.Append(sz.buf[:0], cal)
+	sz.buf, sz.sizes, err = sz.enc.AppendSizes(sz.buf[:0], cal, sz.sizes[:0])
 	if err != nil {
 		return 0, err
 	}
-	perDate, events := dateBytes(sz.buf, cal, q, year)
+	perDate, events := dateBytes(sz.sizes, cal, q, year)
 	// the fixed part, with room for a longer version in PRODID than the
 	// one this server knows
 	fixed := len(sz.buf) - events + prodIDSlack
@@ -312,44 +312,25 @@ const daysPerYear = 365
 // whose version may be longer than Options.Version.
 const prodIDSlack = 64
 
-// A sizer is fitDays' encoder and its encoded year (about a megabyte),
-// kept from one request to the next: an encoder's first calendar allocates
-// its working memory.
+// A sizer is fitDays' encoder, its encoded year (about a megabyte) and
+// the bytes of each of the year's entries, kept from one request to the
+// next: an encoder's first calendar allocates its working memory.
 type sizer struct {
 	enc     *ical.Encoder
 	version string
 	buf     []byte
+	sizes   []int
 }
 
 var sizers = sync.Pool{New: func() any { return new(sizer) }}
 
-// dateBytes splits the events of data, cal encoded, by their local date:
-// perDate[i] is the bytes of the events of the date i days after q.Start,
-// events their total. Each entry is one VEVENT, in cal's order.
-func dateBytes(data []byte, cal *feed.Calendar, q AdhocQuery, year int) (perDate []int, events int) {
-	const begin, end = "BEGIN:VEVENT\r\n", "END:VEVENT\r\n"
+// dateBytes adds up the bytes of cal's entries, each one VEVENT of sizes
+// bytes, by their local date: perDate[i] is the bytes of the events of the
+// date i days after q.Start, events their total.
+func dateBytes(sizes []int, cal *feed.Calendar, q AdhocQuery, year int) (perDate []int, events int) {
 	perDate = make([]int, year)
 	first := time.Date(q.Start.Year(), q.Start.Month(), q.Start.Day(), 0, 0, 0, 0, time.UTC)
-	pos := bytes.Index(data, []byte(begin))
-	last := bytes.LastIndex(data, []byte(end))
-	if pos < 0 || last < pos {
-		return perDate, 0
-	}
-	stop := last + len(end)
-	events = stop - pos
-	n := bytes.Count(data[pos:stop], []byte(begin))
-	if n != len(cal.Entries) {
-		// not one VEVENT per entry: share the events' bytes evenly
-		for i := range perDate {
-			perDate[i] = events/year + 1
-		}
-		return perDate, events
-	}
 	for i := range cal.Entries {
-		next := stop
-		if i+1 < n {
-			next = pos + len(begin) + bytes.Index(data[pos+len(begin):], []byte(begin))
-		}
 		e := &cal.Entries[i]
 		date := e.Date
 		if date.IsZero() {
@@ -357,8 +338,8 @@ func dateBytes(data []byte, cal *feed.Calendar, q AdhocQuery, year int) (perDate
 		}
 		d := time.Date(date.Year(), date.Month(), date.Day(), 0, 0, 0, 0, time.UTC)
 		day := min(max(int(d.Sub(first).Hours()/24), 0), year-1)
-		perDate[day] += next - pos
-		pos = next
+		perDate[day] += sizes[i]
+		events += sizes[i]
 	}
 	return perDate, events
 }

@@ -198,12 +198,14 @@ func BenchmarkAdhocPreview(b *testing.B) {
 // BenchmarkPreviewLampsNote: the builder's preview (/at.json) of a week
 // that needs no lamps, whose note looks beyond the week for the date the
 // lamps are needed again, as the subscribed feed does: within the first
-// eight weeks (vienna) or only in the whole subscription (tromso).
+// eight weeks (vienna) or only further (tromso, and utqiagvik at 71.29° N,
+// with the Moon's kinds too).
 func BenchmarkPreviewLampsNote(b *testing.B) {
 	h := previewServer(b, "sunrise", "sunset")
 	for _, c := range []struct{ name, query string }{
 		{"vienna", "lat=48.2&lon=16.4&tz=Europe/Vienna&kinds=lighting:16h,sunrise,sunset&start=2027-06-20"},
 		{"tromso", "lat=69.65&lon=18.96&tz=Europe/Oslo&kinds=lighting:16h,sunrise,sunset&start=2027-05-20"},
+		{"utqiagvik", "lat=71.29&lon=-156.8&kinds=lighting:16h,sunrise,sunset,moonrise,moonset&start=2027-05-20"},
 	} {
 		b.Run(c.name, func(b *testing.B) {
 			for b.Loop() {

@@ -364,7 +364,7 @@ func (g *flightGroup) do(ctx context.Context, key string, fn func(context.Contex
 // held.
 func (s *Server) suggestDays(ctx context.Context, q AdhocQuery, size int) int {
 	if s.opts.Preview != nil && q.Days > 1 {
-		if days, err := s.fitDays(ctx, q, q.Days-1); err == nil {
+		if days, err := s.fitDays(ctx, q, q.Days-1, nil); err == nil {
 			return days
 		}
 	}

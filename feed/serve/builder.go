@@ -232,14 +232,15 @@ type previewResult struct {
 
 // subscribeDays is the window of q's subscription: the default ad-hoc
 // window, or fewer days when that feed would be over the size limit on
-// some day of the year it may be fetched on (see fitDays).
-func (s *Server) subscribeDays(ctx context.Context, q AdhocQuery) (int, error) {
+// some day of the year it may be fetched on (see fitDays). lamps gets the
+// "no lamps needed" notes of the year it computes.
+func (s *Server) subscribeDays(ctx context.Context, q AdhocQuery, lamps *yearLamps) (int, error) {
 	ctx, release, err := s.adhocSlot(ctx)
 	if err != nil {
 		return 0, err
 	}
 	defer release()
-	return s.fitDays(ctx, q, s.opts.AdhocDefaultDays)
+	return s.fitDays(ctx, q, s.opts.AdhocDefaultDays, lamps)
 }
 
 // fitDays is the longest rolling window, of at most most days, whose feed
@@ -250,9 +251,10 @@ func (s *Server) subscribeDays(ctx context.Context, q AdhocQuery) (int, error) {
 // cyclically, fits with the file's fixed part (header, time zone). Near a
 // pole a summer date carries more events than a winter one: a window sized
 // from the weeks after the request would be refused when the rolling
-// subscription reaches summer. It is called with an ad-hoc slot held, and
-// only when Options.Preview is set.
-func (s *Server) fitDays(ctx context.Context, q AdhocQuery, most int) (int, error) {
+// subscription reaches summer. lamps, when not nil, gets the year's "no
+// lamps needed" notes. It is called with an ad-hoc slot held, and only
+// when Options.Preview is set.
+func (s *Server) fitDays(ctx context.Context, q AdhocQuery, most int, lamps *yearLamps) (int, error) {
 	year := max(daysPerYear, s.opts.AdhocDefaultDays)
 	q.Days = year
 	// near the end of the dates served, the year before it stands in
@@ -264,6 +266,9 @@ func (s *Server) fitDays(ctx context.Context, q AdhocQuery, most int) (int, erro
 		return 0, err
 	}
 	defer cal.Release()
+	if lamps != nil {
+		lamps.keep(cal, q.Start, year)
+	}
 	sz := sizers.Get().(*sizer)
 	defer sizers.Put(sz)
 	if sz.enc == nil || sz.version != s.opts.Version {
@@ -344,6 +349,62 @@ func dateBytes(sizes []int, cal *feed.Calendar, q AdhocQuery, year int) (perDate
 	return perDate, events
 }
 
+// yearLamps are the "no lamps needed" notes of the year fitDays computes,
+// from first to last, each at the start of its stretch of dates.
+type yearLamps struct {
+	first, last time.Time
+	notes       []lampNote
+}
+
+// lampNote is a "no lamps needed" note of a lighting kind: from date,
+// until the first date that needs lamps again (zero: not within the year).
+type lampNote struct {
+	kind        string
+	date, until time.Time
+}
+
+// keep keeps the "no lamps needed" notes of cal, the year of days from first.
+func (y *yearLamps) keep(cal *feed.Calendar, first time.Time, days int) {
+	*y = yearLamps{first: first, last: first.AddDate(0, 0, days-1)}
+	for i := range cal.Entries {
+		if e := &cal.Entries[i]; noLamps(e) {
+			// the calendar's memory goes to the next one
+			y.notes = append(y.notes, lampNote{kind: strings.Clone(e.Kind), date: e.Date, until: e.Facts.Until})
+		}
+	}
+}
+
+// until is the first date that needs lamps again after date, a date that
+// needs none, as the year has it (zero: none within the year). ok is false
+// when the year cannot tell what a feed of kind from date to last says:
+// it does not hold date, or the stretch of dates without lamps lasts past
+// the year's end and the feed goes further.
+func (y *yearLamps) until(kind string, date, last time.Time) (until time.Time, ok bool) {
+	if date.Before(y.first) || date.After(y.last) {
+		return time.Time{}, false
+	}
+	// the stretch that holds date starts on the latest note's date
+	var n *lampNote
+	for i := range y.notes {
+		if m := &y.notes[i]; m.kind == kind && !m.date.After(date) && (n == nil || m.date.After(n.date)) {
+			n = m
+		}
+	}
+	switch {
+	case n == nil || !n.until.IsZero() && !n.until.After(date):
+		return time.Time{}, false
+	case n.until.IsZero() && last.After(y.last):
+		return time.Time{}, false
+	}
+	return n.until, true
+}
+
+// noLamps reports whether e is a lighting kind's note that no lamps are
+// needed from its date on.
+func noLamps(e *feed.Entry) bool {
+	return e.Facts.Note && !e.Facts.Short && strings.HasPrefix(e.Kind, config.KindLighting+":")
+}
+
 // links are the subscribe links of q (a rolling window from the day of
 // each request: no start; days only when fewer than the default) and its
 // shareable table page.
@@ -366,14 +427,15 @@ func (s *Server) servePreview(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	subDays := 0
+	var lamps yearLamps
 	var err error
 	if s.opts.Adhoc != nil {
-		subDays, err = s.subscribeDays(r.Context(), q)
+		subDays, err = s.subscribeDays(r.Context(), q, &lamps)
 		if s.computeFailed(w, q, err) {
 			return
 		}
 	}
-	if err := s.lampNotesAsFed(r.Context(), q, subDays, cal); s.computeFailed(w, q, err) {
+	if err := s.lampNotesAsFed(r.Context(), q, subDays, &lamps, cal); s.computeFailed(w, q, err) {
 		return
 	}
 	https, page := s.links(r, q, start, subDays)
@@ -398,54 +460,54 @@ func (s *Server) servePreview(w http.ResponseWriter, r *http.Request) {
 // the title the subscribed feed gives them on the same dates: the feed,
 // feedDays long from the preview's first date, looks further and says until
 // when ("No lamps needed until 2 Jul", the first date that needs lamps
-// again), or through its own last date. It computes the feed's lighting
-// kinds alone, and only when the preview has such a note: first over
-// lampLookAhead days, which give the feed's title when lamps are needed
-// again within them ("until" names that date whatever the window), then,
-// for a stretch that outlasts them, over the whole feed.
-func (s *Server) lampNotesAsFed(ctx context.Context, q AdhocQuery, feedDays int, cal *feed.Calendar) error {
-	open := func(e *feed.Entry) bool {
-		return e.Facts.Note && !e.Facts.Short && e.Facts.Until.IsZero() && strings.HasPrefix(e.Kind, config.KindLighting+":")
+// again), or through its own last date. The year computed for the
+// subscription's window (lamps, see fitDays) says when lamps are needed
+// again; only when it cannot (near the end of the dates served, where the
+// year ends before the feed) is the feed's lighting computed for the notes.
+func (s *Server) lampNotesAsFed(ctx context.Context, q AdhocQuery, feedDays int, lamps *yearLamps, cal *feed.Calendar) error {
+	if feedDays <= q.Days {
+		return nil
 	}
-	for _, days := range []int{min(lampLookAhead, feedDays), feedDays} {
-		var kinds []string
-		for i := range cal.Entries {
-			if e := &cal.Entries[i]; open(e) && !slices.Contains(kinds, e.Kind) {
-				kinds = append(kinds, e.Kind)
-			}
-		}
-		if len(kinds) == 0 || days <= q.Days {
+	last := q.Start.AddDate(0, 0, feedDays-1)
+	open := func(e *feed.Entry) bool { return noLamps(e) && e.Facts.Until.IsZero() }
+	var kinds []string // those the year does not answer for
+	for i := range cal.Entries {
+		e := &cal.Entries[i]
+		if !open(e) {
 			continue
 		}
-		q.Kinds, q.Days = kinds, days
-		long, err := s.compute(ctx, q)
-		if err != nil {
-			return err
-		}
-		for i := range cal.Entries {
-			e := &cal.Entries[i]
-			if !open(e) {
-				continue
+		if until, ok := lamps.until(e.Kind, e.Date, last); ok {
+			if err := feed.LampNoteWithin(e, until, last); err != nil {
+				return err
 			}
-			for j := range long.Entries {
-				if f := &long.Entries[j]; f.Facts.Note && !f.Facts.Short && f.Kind == e.Kind && f.Date.Equal(e.Date) {
-					if !f.Facts.Until.IsZero() || days == feedDays {
-						e.Title, e.Description = strings.Clone(f.Title), strings.Clone(f.Description)
-						e.Facts.Until = f.Facts.Until
-					}
-					break
-				}
+		} else if !slices.Contains(kinds, e.Kind) {
+			kinds = append(kinds, e.Kind)
+		}
+	}
+	if len(kinds) == 0 {
+		return nil
+	}
+	q.Kinds, q.Days = kinds, feedDays
+	long, err := s.compute(ctx, q)
+	if err != nil {
+		return err
+	}
+	defer long.Release()
+	for i := range cal.Entries {
+		e := &cal.Entries[i]
+		if !open(e) || !slices.Contains(kinds, e.Kind) {
+			continue
+		}
+		for j := range long.Entries {
+			if f := &long.Entries[j]; noLamps(f) && f.Kind == e.Kind && f.Date.Equal(e.Date) {
+				e.Title, e.Description = strings.Clone(f.Title), strings.Clone(f.Description)
+				e.Facts.Until = f.Facts.Until
+				break
 			}
 		}
-		long.Release()
 	}
 	return nil
 }
-
-// lampLookAhead is how many days from the preview's first date are
-// computed first for its "no lamps needed" notes: most stretches end
-// within them.
-const lampLookAhead = 56
 
 // previewCalendar reads a preview or table query of at most maxDays days and
 // computes its calendar; start is the query's own start date ("" when it

@@ -172,11 +172,30 @@ func BenchmarkAdhocRequest(b *testing.B) {
 // a year fits; at 71.29° N with seven kinds it does not (290 days).
 // cpu-ms/op is the process's CPU time per request.
 func BenchmarkAdhocPreview(b *testing.B) {
-	h := previewServer(b, "sunrise", "sunset", "civil-dawn", "civil-dusk")
-	for _, c := range []struct{ name, query string }{
+	benchPreviews(b, previewServer(b, "sunrise", "sunset", "civil-dawn", "civil-dusk"), []struct{ name, query string }{
 		{"vienna", "lat=48.2&lon=16.4&tz=Europe/Vienna&start=2026-12-04"},
 		{"utqiagvik", "lat=71.29&lon=-156.8&kinds=sunrise,sunset,civil-dawn,civil-dusk,golden-hour,moonrise,moonset&start=2026-12-04"},
-	} {
+	})
+}
+
+// BenchmarkPreviewLampsNote: the builder's preview (/at.json) of a week
+// that needs no lamps, whose note looks beyond the week for the date the
+// lamps are needed again, as the subscribed feed does: within the first
+// eight weeks (vienna) or only further (tromso, and utqiagvik at 71.29° N,
+// with the Moon's kinds too). cpu-ms/op is the process's CPU time per
+// request.
+func BenchmarkPreviewLampsNote(b *testing.B) {
+	benchPreviews(b, previewServer(b, "sunrise", "sunset"), []struct{ name, query string }{
+		{"vienna", "lat=48.2&lon=16.4&tz=Europe/Vienna&kinds=lighting:16h,sunrise,sunset&start=2027-06-20"},
+		{"tromso", "lat=69.65&lon=18.96&tz=Europe/Oslo&kinds=lighting:16h,sunrise,sunset&start=2027-05-20"},
+		{"utqiagvik", "lat=71.29&lon=-156.8&kinds=lighting:16h,sunrise,sunset,moonrise,moonset&start=2027-05-20"},
+	})
+}
+
+// benchPreviews runs a sub-benchmark a case that asks h for the preview of
+// its query, after one request that builds the dates' shared ephemeris.
+func benchPreviews(b *testing.B, h http.Handler, cases []struct{ name, query string }) {
+	for _, c := range cases {
 		b.Run(c.name, func(b *testing.B) {
 			get := func() {
 				w := &discardResponse{h: http.Header{}}
@@ -185,36 +204,12 @@ func BenchmarkAdhocPreview(b *testing.B) {
 					b.Fatalf("status %d", w.code)
 				}
 			}
-			get() // the dates' shared ephemeris
+			get()
 			cpu0 := cputime.Used()
 			for b.Loop() {
 				get()
 			}
 			b.ReportMetric(float64(cputime.Used()-cpu0)/1e6/float64(b.N), "cpu-ms/op")
-		})
-	}
-}
-
-// BenchmarkPreviewLampsNote: the builder's preview (/at.json) of a week
-// that needs no lamps, whose note looks beyond the week for the date the
-// lamps are needed again, as the subscribed feed does: within the first
-// eight weeks (vienna) or only further (tromso, and utqiagvik at 71.29° N,
-// with the Moon's kinds too).
-func BenchmarkPreviewLampsNote(b *testing.B) {
-	h := previewServer(b, "sunrise", "sunset")
-	for _, c := range []struct{ name, query string }{
-		{"vienna", "lat=48.2&lon=16.4&tz=Europe/Vienna&kinds=lighting:16h,sunrise,sunset&start=2027-06-20"},
-		{"tromso", "lat=69.65&lon=18.96&tz=Europe/Oslo&kinds=lighting:16h,sunrise,sunset&start=2027-05-20"},
-		{"utqiagvik", "lat=71.29&lon=-156.8&kinds=lighting:16h,sunrise,sunset,moonrise,moonset&start=2027-05-20"},
-	} {
-		b.Run(c.name, func(b *testing.B) {
-			for b.Loop() {
-				w := &discardResponse{h: http.Header{}}
-				h.ServeHTTP(w, httptest.NewRequest("GET", "/at.json?"+c.query, nil))
-				if w.code != http.StatusOK {
-					b.Fatalf("status %d", w.code)
-				}
-			}
 		})
 	}
 }

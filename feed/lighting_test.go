@@ -882,3 +882,48 @@ func TestLightingLimitSkippedByTheClocks(t *testing.T) {
 		t.Errorf("29 March: %+v", es)
 	}
 }
+
+// TestLampNoteWithin: the "no lamps needed" note of a year's calendar,
+// given another last date, has the title, description and end of the note
+// that a calendar from its date to that last date computes: "through" the
+// last date when lamps are needed again after it, "until" the date
+// otherwise. At 48.2° N the days of 14 h or more last from about 21 April
+// to about 22 August (TestLightingEntries, photoperiod:14h).
+func TestLampNoteWithin(t *testing.T) {
+	s := site(t, "vienna", 48.2, 16.4, "Europe/Vienna")
+	sk := sky(t, "2027-01-01", "2027-12-31")
+	specs := []config.KindSpec{lightingSpec(t, "lighting:14h", nil)}
+	note := func(first, last time.Time) Entry {
+		t.Helper()
+		es, err := sk.Entries(context.Background(), s, "f", specs, first, last)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, e := range es {
+			if e.Facts.Note && !e.Facts.Short {
+				return e
+			}
+		}
+		t.Fatalf("%s..%s: no note that no lamps are needed", first.Format(time.DateOnly), last.Format(time.DateOnly))
+		return Entry{}
+	}
+	year := note(date("2027-01-01"), date("2027-12-31"))
+	if year.Facts.Until.IsZero() || year.Date.Month() != time.April || year.Facts.Until.Month() != time.August {
+		t.Fatalf("the year's note %s..%s, want April to August", year.Date.Format(time.DateOnly), year.Facts.Until.Format(time.DateOnly))
+	}
+	for _, last := range []time.Time{year.Date.AddDate(0, 0, 6), year.Facts.Until.AddDate(0, 0, -1), year.Facts.Until, date("2027-10-31")} {
+		want := note(year.Date, last)
+		got := year
+		if err := LampNoteWithin(&got, year.Facts.Until, last); err != nil {
+			t.Fatal(err)
+		}
+		if got.Title != want.Title || got.Description != want.Description || !got.Facts.Until.Equal(want.Facts.Until) {
+			t.Errorf("through %s: %q, %q, until %s; the calendar's %q, %q, until %s", last.Format(time.DateOnly),
+				got.Title, got.Description, got.Facts.Until, want.Title, want.Description, want.Facts.Until)
+		}
+	}
+	other := Entry{Kind: "sunrise", Title: "Sunrise", Date: date("2027-06-01")}
+	if err := LampNoteWithin(&other, time.Time{}, date("2027-06-30")); err == nil || !strings.Contains(err.Error(), `"sunrise"`) {
+		t.Errorf("a sunrise: error %v, want one naming the kind", err)
+	}
+}

@@ -80,6 +80,9 @@ bytes as the published feed for the same window).` + exitStatusHelp,
 			}
 			o.kindsSet = cmd.Flags().Changed("kinds")
 			o.now = time.Now()
+			if err := checkEventsFlags(o); err != nil {
+				return err
+			}
 			if o.feed != "" && !o.kindsSet {
 				return runEventsFeed(cmd.Context(), g, o)
 			}
@@ -107,6 +110,21 @@ bytes as the published feed for the same window).` + exitStatusHelp,
 	_ = cmd.RegisterFlagCompletionFunc("feed", completeFromConfig(g, feedIDs))
 	_ = cmd.RegisterFlagCompletionFunc("tz", completeZones)
 	return cmd
+}
+
+// checkEventsFlags checks the flags whose values stand alone, before
+// anything is looked up (the configuration, the zone at a place) or
+// printed: a bad one is the only message.
+func checkEventsFlags(o *eventsOptions) error {
+	switch o.format {
+	case "table", "json", "csv", "ics":
+	default:
+		return badInput("--format: %q: use table, json, csv or ics", o.format)
+	}
+	if math.IsNaN(o.maxLit) || o.maxLit < 0 || o.maxLit > 1 {
+		return badInput("--max-illumination: %v: must be within 0..1", o.maxLit)
+	}
+	return nil
 }
 
 // eventsPlace resolves the site the events are computed for.
@@ -291,9 +309,6 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 	sky, err := feed.NewSky(from, to)
 	if err != nil {
 		return inputError{err}
-	}
-	if math.IsNaN(o.maxLit) || o.maxLit < 0 || o.maxLit > 1 {
-		return badInput("--max-illumination: %v: must be within 0..1", o.maxLit)
 	}
 	if o.maxLit != 0 || len(o.feedSpecs) == 0 {
 		for i := range specs {

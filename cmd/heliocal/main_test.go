@@ -221,6 +221,10 @@ func TestEventsBadInput(t *testing.T) {
 		{"not a duration", []string{"publish", "--lock-wait", "5", "--out", "unused"}, `heliocal: --lock-wait: "5": not a duration`},
 		{"shard count", []string{"publish", "--shard", "0/10001", "--out", "unused"}, `--shard "0/10001": count must be at most 10000`},
 		{"out is a file", []string{"publish", "--out", "main_test.go"}, `heliocal: --out: "main_test.go": not a directory`},
+		// a directory under a file cannot be made either: bad input too,
+		// not a failed write
+		{"out under a file", []string{"publish", "--out", filepath.Join("main_test.go", "sub")},
+			`heliocal: --out: "` + filepath.Join("main_test.go", "sub") + `": main_test.go is not a directory`},
 		{"config", []string{"check", "--config", filepath.Join("..", "..", "testdata", "config", "bad-latitude.yaml")}, "latitude"},
 		{"missing config", []string{"check", "--config", "nope.yaml"}, "heliocal: --config nope.yaml: no such file\n"},
 		{"config extension", []string{"check", "--config", "farm.ini"}, `heliocal: --config farm.ini: unknown file extension ".ini"`},
@@ -234,6 +238,21 @@ func TestEventsBadInput(t *testing.T) {
 				t.Errorf("message %q does not name %q", errOut, tc.want)
 			}
 		})
+	}
+}
+
+// A flag whose value is out of range is the only message: it is checked
+// before the zone at the place is looked up and named in a note.
+func TestEventsFlagsBeforeZone(t *testing.T) {
+	for _, args := range [][]string{
+		{"events", "--lat", "48.2", "--lon", "16.4", "--max-illumination", "1.5"},
+		{"events", "--lat", "48.2", "--lon", "16.4", "--format", "xml"},
+		{"events", "--lat", "48.2", "--lon", "16.4", "--kinds", "dark-window", "--max-illumination", "-0.1"},
+	} {
+		code, out, errOut := runCLI(t, args...)
+		if code != exitInput || out != "" || strings.Count(errOut, "\n") != 1 || strings.Contains(errOut, "--tz") {
+			t.Errorf("%s: exit %d, stdout %q, stderr %q; want exit %d and one line of error", strings.Join(args, " "), code, out, errOut, exitInput)
+		}
 	}
 }
 

@@ -86,6 +86,50 @@ func TestSkylineFileRelativeToConfig(t *testing.T) {
 	}
 }
 
+// A skyline with several bad points, as a list or in a file, has every
+// point reported, in the order written, and no "has no skyline" problem
+// for the feed that needs it (the site has one, refused).
+func TestSkylineEveryBadPoint(t *testing.T) {
+	for _, tc := range []struct {
+		file string
+		want []string // each problem as printed, without the file name
+	}{
+		{"bad-skyline-points.yaml", []string{
+			"sites[0].horizon[1]: [8, 90]: altitude must be within -5..45 degrees",
+			"sites[0].horizon[2]: [90]: must be a pair [azimuth, altitude] of numbers",
+			"sites[0].horizon[3]: [400, 2]: azimuth must be within 0..360",
+			"sites[0].horizon[5]: [180, 4]: azimuth 180 given twice (also sites[0].horizon[4]",
+			"sites[0].horizon[6]: [270, 60]: altitude must be within -5..45 degrees",
+		}},
+		{"bad-skyline-file-points.yaml", []string{
+			"sites[0].horizon: bad-skyline-points.csv: line 3: [120, 60]: altitude must be within -5..45 degrees",
+			`sites[0].horizon: bad-skyline-points.csv: line 4: "ridge,high" is not two numbers`,
+			"sites[0].horizon: bad-skyline-points.csv: line 6: [240, 5]: azimuth 240 given twice (also line 5",
+			"sites[0].horizon: bad-skyline-points.csv: line 7: 1 field, want azimuth,altitude",
+			"sites[0].horizon: bad-skyline-points.csv: line 8: [400, 1]: azimuth must be within 0..360",
+		}},
+	} {
+		t.Run(tc.file, func(t *testing.T) {
+			_, err := loadTestdata(t, tc.file)
+			if err == nil {
+				t.Fatal("no error")
+			}
+			ps := problemsOf(t, err)
+			if len(ps) != len(tc.want) {
+				t.Errorf("%d problems, want %d:\n%v", len(ps), len(tc.want), err)
+			}
+			for i := range min(len(ps), len(tc.want)) {
+				if got := ps[i].Path + ": " + ps[i].Value + ": " + ps[i].Msg; !strings.HasPrefix(got, tc.want[i]) {
+					t.Errorf("problem %d: %q, want %q", i, got, tc.want[i])
+				}
+			}
+			if strings.Contains(err.Error(), "no skyline") {
+				t.Errorf("a refused skyline is reported missing too:\n%v", err)
+			}
+		})
+	}
+}
+
 // TestValidationErrors checks one file per problem: the error names the
 // field path and the offending value, and says what is wrong.
 func TestValidationErrors(t *testing.T) {

@@ -37,38 +37,73 @@ func (s *Site) resolveHorizon(path, dir string) []FieldError {
 		if dir != "" && !filepath.IsAbs(name) {
 			name = filepath.Join(dir, name)
 		}
-		pts, lines, err := readSkylineCSV(name)
+		pts, lines, bad, err := readSkylineCSV(name)
+		hint := `a CSV file of "azimuth,altitude" lines, e.g. "90,8"`
 		if err != nil {
-			hint := `a CSV file of "azimuth,altitude" lines, e.g. "90,8"`
 			if name != v {
 				hint = "a relative name is read from the configuration file's directory; " + hint
 			}
 			return []FieldError{{Path: path, Value: v, Msg: err.Error(), Hint: hint}}
 		}
 		s.HorizonFile = name
+		var ps []FieldError
+		for _, msg := range bad {
+			ps = append(ps, FieldError{Path: path, Value: v, Msg: msg, Hint: hint})
+		}
+		if len(pts) == 0 && len(bad) > 0 {
+			return ps // no point to check, and not an empty file
+		}
 		// a bad point is named by the file and its line, not its index
-		ps := s.setSkyline(path, pts, func(j int) string { return fmt.Sprintf("line %d", lines[j]) }, nil)
-		for i := range ps {
-			if ps[i].Path != path {
-				ps[i].Msg = ps[i].Path + ": " + ps[i].Value + ": " + ps[i].Msg
+		more := s.setSkyline(path, pts, func(j int) string { return fmt.Sprintf("line %d", lines[j]) }, nil)
+		for i := range more {
+			if more[i].Path != path {
+				more[i].Msg = more[i].Path + ": " + more[i].Value + ": " + more[i].Msg
 			}
-			ps[i].Path, ps[i].Value = path, v
+			more[i].Path, more[i].Value = path, v
+		}
+		ps = append(ps, more...)
+		sortByLine(ps)
+		if len(ps) > 0 {
+			s.Skyline = nil
 		}
 		return ps
 	case []any:
 		pts := make([][2]float64, 0, len(v))
+		var at []int // the index in v of each point of pts
+		var ps []FieldError
 		for j, e := range v {
 			p, ok := pointOf(e)
 			if !ok {
-				return []FieldError{{Path: fmt.Sprintf("%s[%d]", path, j), Value: fmt.Sprint(e), Msg: "must be a pair [azimuth, altitude] of numbers",
-					Hint: "e.g. horizon: [[0, 2.5], [90, 8], [180, 1], [270, 4]]"}}
+				ps = append(ps, FieldError{Path: fmt.Sprintf("%s[%d]", path, j), Value: fmt.Sprint(e), Msg: "must be a pair [azimuth, altitude] of numbers",
+					Hint: "e.g. horizon: [[0, 2.5], [90, 8], [180, 1], [270, 4]]"})
+				continue
 			}
-			pts = append(pts, p)
+			pts, at = append(pts, p), append(at, j)
 		}
-		return s.setSkyline(path, pts, nil, nil)
+		if len(pts) == 0 && len(ps) > 0 {
+			return ps
+		}
+		ps = append(ps, s.setSkyline(path, pts, func(j int) string { return fmt.Sprintf("%s[%d]", path, at[j]) }, nil)...)
+		if len(ps) > 0 {
+			sort.SliceStable(ps, func(i, j int) bool { return pointIndex(ps[i].Path) < pointIndex(ps[j].Path) })
+			s.Skyline = nil
+		}
+		return ps
 	}
 	return []FieldError{{Path: path, Value: showValue(s.HorizonValue), Msg: "must be a number, a list of [azimuth, altitude] points or a CSV file name",
 		Hint: "e.g. horizon: 1.5, or horizon: [[0, 2.5], [90, 8]]"}}
+}
+
+// skylineGiven reports whether the site has a skyline, or its horizon key
+// holds something other than one altitude: a list of points or a file
+// name, refused with its own problems, which a "no skyline" problem would
+// only contradict.
+func (s *Site) skylineGiven() bool {
+	switch s.HorizonValue.(type) {
+	case nil, float64, int, int64:
+		return len(s.Skyline) > 0
+	}
+	return true
 }
 
 func pointOf(e any) ([2]float64, bool) {
@@ -108,6 +143,7 @@ func (s *Site) setSkyline(path string, pts [][2]float64, name, show func(j int) 
 		return fmt.Sprintf("%s[%d]", path, j)
 	}
 	seen := map[float64]int{}
+	var ps []FieldError
 	for j, p := range pts {
 		at, value := pointAt(j), ""
 		if show != nil {
@@ -116,58 +152,100 @@ func (s *Site) setSkyline(path string, pts [][2]float64, name, show func(j int) 
 			value = fmt.Sprintf("[%s, %s]", ftoa(p[0]), ftoa(p[1]))
 		}
 		if !(p[0] >= 0 && p[0] <= 360) {
-			return []FieldError{{Path: at, Value: value, Msg: "azimuth must be within 0..360", Hint: "degrees from the north through the east: 90 is east, 180 south"}}
+			ps = append(ps, FieldError{Path: at, Value: value, Msg: "azimuth must be within 0..360", Hint: "degrees from the north through the east: 90 is east, 180 south"})
+			continue
 		}
 		if !(p[1] >= MinHorizon && p[1] <= MaxHorizon) {
-			return []FieldError{{Path: at, Value: value, Msg: fmt.Sprintf("altitude must be within %g..%g degrees", MinHorizon, MaxHorizon), Hint: "the apparent altitude of the skyline in that direction; azimuth comes first"}}
+			ps = append(ps, FieldError{Path: at, Value: value, Msg: fmt.Sprintf("altitude must be within %g..%g degrees", MinHorizon, MaxHorizon), Hint: "the apparent altitude of the skyline in that direction; azimuth comes first"})
+			continue
 		}
 		az := p[0]
 		if az == 360 {
 			az = 0
 		}
 		if k, dup := seen[az]; dup {
-			return []FieldError{{Path: at, Value: value, Msg: fmt.Sprintf("azimuth %s given twice (also %s; 0 and 360 are the same)", ftoa(az), pointAt(k)), Hint: "one altitude per direction"}}
+			ps = append(ps, FieldError{Path: at, Value: value, Msg: fmt.Sprintf("azimuth %s given twice (also %s; 0 and 360 are the same)", ftoa(az), pointAt(k)), Hint: "one altitude per direction"})
+			continue
 		}
 		seen[az] = j
 		pts[j][0] = az
+	}
+	if len(ps) > 0 {
+		return ps
 	}
 	sort.Slice(pts, func(i, j int) bool { return pts[i][0] < pts[j][0] })
 	s.Skyline = pts
 	return nil
 }
 
+// pointIndex is the index j of a skyline point's path "….horizon[j]", or -1
+// for the horizon key itself: the order a list's problems are reported in.
+func pointIndex(path string) int {
+	i := strings.LastIndexByte(path, '[')
+	if i < 0 || !strings.HasSuffix(path, "]") {
+		return -1
+	}
+	j, err := strconv.Atoi(path[i+1 : len(path)-1])
+	if err != nil {
+		return -1
+	}
+	return j
+}
+
+// sortByLine orders a skyline file's problems by the line each names
+// ("line 7: …"), as the file reads.
+func sortByLine(ps []FieldError) {
+	line := func(msg string) int {
+		rest, ok := strings.CutPrefix(msg, "line ")
+		if !ok {
+			return 0
+		}
+		end := strings.IndexFunc(rest, func(r rune) bool { return r < '0' || r > '9' })
+		if end < 0 {
+			end = len(rest)
+		}
+		n, _ := strconv.Atoi(rest[:end])
+		return n
+	}
+	sort.SliceStable(ps, func(i, j int) bool { return line(ps[i].Msg) < line(ps[j].Msg) })
+}
+
 // readSkylineCSV reads "azimuth,altitude" lines: the points and the line
-// of each in the file.
-func readSkylineCSV(name string) ([][2]float64, []int, error) {
+// of each in the file, and a message for each line that is not a point
+// ("line 7: …"). err is a file that cannot be read, or is not CSV.
+func readSkylineCSV(name string) (pts [][2]float64, lines []int, bad []string, err error) {
 	f, err := os.Open(name)
 	if err != nil {
 		if errors.Is(err, os.ErrNotExist) {
-			return nil, nil, fmt.Errorf("no such skyline file (looked for %s)", name)
+			return nil, nil, nil, fmt.Errorf("no such skyline file (looked for %s)", name)
 		}
 		var pe *fs.PathError
 		if errors.As(err, &pe) {
 			err = pe.Err
 		}
-		return nil, nil, fmt.Errorf("cannot read the skyline file %s: %v", name, err)
+		return nil, nil, nil, fmt.Errorf("cannot read the skyline file %s: %v", name, err)
 	}
 	defer f.Close()
 	r := csv.NewReader(f)
 	r.Comment = '#'
 	r.FieldsPerRecord = -1
 	r.TrimLeadingSpace = true
-	var pts [][2]float64
-	var lines []int
 	for first := true; ; first = false {
 		rec, err := r.Read()
 		if err == io.EOF {
 			break
 		}
 		if err != nil {
-			return nil, nil, fmt.Errorf("not CSV: %v", err)
+			return nil, nil, nil, fmt.Errorf("not CSV: %v", err)
 		}
 		line, _ := r.FieldPos(0) // comments and blank lines counted
 		if len(rec) != 2 {
-			return nil, nil, fmt.Errorf("line %d: %d fields, want azimuth,altitude", line, len(rec))
+			fields := fmt.Sprintf("%d fields", len(rec))
+			if len(rec) == 1 {
+				fields = "1 field"
+			}
+			bad = append(bad, fmt.Sprintf("line %d: %s, want azimuth,altitude", line, fields))
+			continue
 		}
 		a, err1 := strconv.ParseFloat(strings.TrimSpace(rec[0]), 64)
 		b, err2 := strconv.ParseFloat(strings.TrimSpace(rec[1]), 64)
@@ -175,11 +253,12 @@ func readSkylineCSV(name string) ([][2]float64, []int, error) {
 			if first {
 				continue // a header
 			}
-			return nil, nil, fmt.Errorf("line %d: %q is not two numbers", line, strings.Join(rec, ","))
+			bad = append(bad, fmt.Sprintf("line %d: %q is not two numbers", line, strings.Join(rec, ",")))
+			continue
 		}
 		pts, lines = append(pts, [2]float64{a, b}), append(lines, line)
 	}
-	return pts, lines, nil
+	return pts, lines, bad, nil
 }
 
 // HorizonFromText reads a horizon written on a command line (flag names

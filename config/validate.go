@@ -215,7 +215,7 @@ func (c *Config) Validate() error {
 			ps.add(p+".site", f.Site, "no site has this id", hint)
 		default:
 			for j, ks := range f.Kinds {
-				if (ks.Kind.Name == "sun-hidden" || ks.Kind.Name == "noon-clear") && len(c.Sites[siteIDs[f.Site]].Skyline) == 0 {
+				if (ks.Kind.Name == "sun-hidden" || ks.Kind.Name == "noon-clear") && !c.Sites[siteIDs[f.Site]].skylineGiven() {
 					ps.add(fmt.Sprintf("%s.kinds[%d]", p, j), ks.Kind.Name, fmt.Sprintf("site %q has no skyline, so the Sun is never hidden between sunrise and sunset", f.Site),
 						"give the site a horizon of [azimuth, altitude] points, e.g. horizon: [[0, 2], [170, 2], [180, 25], [190, 2]]")
 				}

@@ -92,7 +92,9 @@ func reloadServe(ctx context.Context, g *globals, log *slog.Logger, srv *serve.S
 // a later one only when a limit is newly warned about: a refresh that finds
 // the same limits says nothing, though its window and count of dates moved.
 // A feed over service.max_feed_bytes under service.oversize: warn is
-// served and logged likewise, in the words of check and publish.
+// served and logged likewise, in the words of check and publish; under
+// service.oversize: trim publish's note on the shortened feed is logged,
+// at WARN, after the first build that shortens it.
 func serveBuild(cfg *config.Config, base string, log *slog.Logger) serve.BuildFunc {
 	var mu sync.Mutex
 	logged := map[string]bool{} // the limits warned about by the latest build
@@ -115,6 +117,12 @@ func serveBuild(cfg *config.Config, base string, log *slog.Logger) serve.BuildFu
 				log.Warn(w.text)
 			}
 			found[w.limit] = true
+		}
+		for _, t := range b.Trimmed { // service.oversize: trim: publish's note
+			if key := "trimmed:" + t.Feed.ID; !logged[key] {
+				log.Warn(publish.TrimNote(t, opts.MaxFeedBytes))
+			}
+			found["trimmed:"+t.Feed.ID] = true
 		}
 		if opts.Oversize == "" || opts.Oversize == publish.OversizeWarn { // published all the same: say so, as publish does
 			for _, f := range b.Feeds {

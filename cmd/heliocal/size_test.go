@@ -84,3 +84,32 @@ func TestServeOversizeWarning(t *testing.T) {
 		t.Errorf("two builds logged %q, want once %s", got, oversizeWords)
 	}
 }
+
+// Under service.oversize: trim serve logs publish's note on the shortened
+// feed at WARN, once for two builds that shorten it alike, in publish's
+// words, with the sizes written as the warning writes them ("20 kB", not
+// "20.0 kB").
+func TestServeTrimNote(t *testing.T) {
+	yaml := strings.Replace(meadowOversize, "max_feed_bytes: 20000\n", "max_feed_bytes: 20000\n  oversize: trim\n", 1)
+	c, err := config.Parse(strings.NewReader(yaml), "yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	var logged lockedBuffer
+	b := serveBuild(c, "", slog.New(slog.NewJSONHandler(&logged, nil)))
+	for range 2 {
+		if _, err := b(context.Background()); err != nil {
+			t.Fatal(err)
+		}
+	}
+	note := regexp.MustCompile(`^meadow\.ics shortened to \d{4}-\d\d-\d\d to stay under 20 kB \(now 1\d(\.\d)? kB, \d+ events\)$`)
+	got := warnings(t, &logged)
+	if len(got) != 1 || !note.MatchString(got[0]) {
+		t.Fatalf("two builds logged %q, want once %s", got, note)
+	}
+	cfg := writeConfig(t, yaml)
+	code, _, errOut := runCLI(t, "publish", "--config", cfg, "--out", filepath.Join(t.TempDir(), "public"))
+	if code != 0 || !strings.Contains(errOut, "\nnote: "+got[0]+"\n") {
+		t.Errorf("publish: exit %d, stderr %q; want the note %q", code, errOut, got[0])
+	}
+}

@@ -32,6 +32,9 @@ type Bundle struct {
 	Built time.Time
 	Feeds []FeedInfo
 	Files []File // sorted by Name
+	// Trimmed lists the feeds shortened to fit RenderOptions.MaxFeedBytes
+	// (RenderOptions.Oversize = OversizeTrim), in the order of Feeds.
+	Trimmed []Trimmed
 }
 
 // File returns the named file, or nil.

@@ -96,7 +96,7 @@ func trimToFit(c *feed.Calendar, buf []byte, n, limit int, enc encodeFunc) ([]by
 		if end.Before(c.WindowEnd) {
 			c.WindowEnd = end
 		}
-		note := fmt.Sprintf("Shortened to stay under %s: this calendar reaches to %s.", FormatBytes(int64(limit)), last.Format(time.DateOnly))
+		note := fmt.Sprintf("Shortened to stay under %s: this calendar reaches to %s.", FormatLimit(limit), last.Format(time.DateOnly))
 		if desc == "" {
 			c.Description = note
 		} else {

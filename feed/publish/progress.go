@@ -147,8 +147,7 @@ func Summary(st Stats, dir string) string {
 func Warnings(st Stats) []string {
 	var out []string
 	for _, t := range st.Trimmed {
-		out = append(out, fmt.Sprintf("note: %s shortened to %s to stay under %s (now %s, %d events)",
-			t.Feed.File, t.To.Format("2006-01-02"), FormatBytes(int64(st.MaxFeedBytes)), FormatBytes(int64(t.Feed.Bytes)), t.Feed.Events))
+		out = append(out, "note: "+TrimNote(t, st.MaxFeedBytes))
 	}
 	for _, f := range st.Oversize {
 		out = append(out, "warning: "+OversizeWarning(f.ID, f.Bytes, st.MaxFeedBytes))
@@ -162,6 +161,23 @@ func Warnings(st Stats) []string {
 func OversizeWarning(id string, bytes, limit int) string {
 	size, most := FormatBytesOver(int64(bytes), int64(limit))
 	return fmt.Sprintf("feed %q is %s, over service.max_feed_bytes (%s): some web calendars drop events from subscriptions this large; shorten days_back/days_ahead or split the kinds into several feeds", id, size, most)
+}
+
+// TrimNote is the note about a feed shortened to stay under limit
+// (service.oversize: trim), in the one wording of check, publish and
+// serve: "plot-sun.ics shortened to 2027-06-03 to stay under 1 MB (now
+// 0.998 MB, 1512 events)", sizes written as OversizeWarning writes them.
+func TrimNote(t Trimmed, limit int) string {
+	now, most := FormatBytesOver(int64(t.Feed.Bytes), int64(limit))
+	return fmt.Sprintf("%s shortened to %s to stay under %s (now %s, %d events)",
+		t.Feed.File, t.To.Format(time.DateOnly), most, now, t.Feed.Events)
+}
+
+// FormatLimit writes a size limit as OversizeWarning and TrimNote write it:
+// with no more decimals than it needs ("400 kB", "1 MB", "1.25 MB").
+func FormatLimit(limit int) string {
+	_, most := FormatBytesOver(0, int64(limit))
+	return most
 }
 
 func displayDir(dir string) string {

@@ -3,6 +3,7 @@ package publish
 import (
 	"context"
 	"errors"
+	"regexp"
 	"strings"
 	"testing"
 	"time"
@@ -109,10 +110,16 @@ func TestOversize(t *testing.T) {
 	if len(data) > 400000 || len(data) < 360000 || !last.Equal(cal.TrimmedTo) || !last.Before(time.Date(2028, 1, 1, 0, 0, 0, 0, time.UTC)) {
 		t.Errorf("trim: %d bytes, last date %s, trimmed to %s", len(data), last.Format(time.DateOnly), cal.TrimmedTo.Format(time.DateOnly))
 	}
-	// the limit written as the publish note writes it ("400.0 kB"), not as
-	// a count of bytes
-	if want := "Shortened to stay under 400.0 kB: this calendar reaches to " + last.Format(time.DateOnly) + "."; !strings.Contains(cal.Description, want) {
+	// the limit written as the notes and warnings write it ("400 kB"), not
+	// as a count of bytes nor with a decimal it does not need ("400.0 kB")
+	if want := "Shortened to stay under 400 kB: this calendar reaches to " + last.Format(time.DateOnly) + "."; !strings.Contains(cal.Description, want) {
 		t.Errorf("trim: description %q lacks %q", cal.Description, want)
+	}
+	// publish's note writes the limit and the size as the warning writes
+	// them: one unit, no needless decimal
+	note := TrimNote(Trimmed{Feed: FeedInfo{File: "plot-sun.ics", Bytes: len(data), Events: len(cal.Entries)}, To: cal.TrimmedTo}, 400000)
+	if want := regexp.MustCompile(`^plot-sun\.ics shortened to ` + last.Format(time.DateOnly) + ` to stay under 400 kB \(now 3\d\d(\.\d)? kB, \d+ events\)$`); !want.MatchString(note) {
+		t.Errorf("trim: note %q, want %s", note, want)
 	}
 	if cal.Entries[0].Date.After(time.Date(2027, 1, 25, 0, 0, 0, 0, time.UTC)) {
 		t.Errorf("trim: the near end moved to %s", cal.Entries[0].Date.Format(time.DateOnly))

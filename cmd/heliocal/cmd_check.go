@@ -16,7 +16,6 @@ import (
 
 	"heliocal/config"
 	"heliocal/feed"
-	"heliocal/feed/ical"
 	"heliocal/feed/publish"
 )
 
@@ -27,8 +26,11 @@ func newCheckCommand(g *globals) *cobra.Command {
 		Short: "Validate the configuration and summarise its sites and feeds",
 		Long: `Validate the configuration (every problem is listed, each with its field and value) and,
 when it is valid, build every feed once and print the sites, the feeds, their event counts
-and sizes. A feed larger than service.max_feed_bytes gets a warning: some widely used web
-calendars are reported to drop events from subscriptions over about 1 MB. A lighting
+and sizes. A feed larger than service.max_feed_bytes is reported as publish and serve treat
+it under service.oversize: warn publishes it as it is, with a warning (some widely used web
+calendars are reported to drop events from subscriptions over about 1 MB); trim shortens it,
+with publish's note and the shortened feed's size in the table; fail refuses it: check then
+exits 1, as publish does. A lighting
 latest_off (earliest_on) that comes before the evening lamps start (after the morning lamps
 end) on some dates, and so does not limit them there, gets a warning too, as does a
 date a kinds entry lists or a plan is on before the feed's window: it is never published.
@@ -63,8 +65,12 @@ type checkReport struct {
 	Feeds         []checkFeed    `json:"feeds"`
 	Warnings      []string       `json:"warnings"`
 	// Notes are what check tells that needs no change: a listed date after
-	// a feed's window, published once the window reaches it.
+	// a feed's window, published once the window reaches it; a feed that
+	// publish and serve shorten to fit max_feed_bytes (oversize: trim).
 	Notes []string `json:"notes"`
+	// Refused are the feeds publish and serve refuse, over max_feed_bytes
+	// under oversize: fail (exit 1, as publish).
+	Refused []string `json:"refused,omitempty"`
 }
 
 type checkProblem struct {
@@ -109,7 +115,10 @@ type checkFeed struct {
 	DaysAhead int      `json:"days_ahead"`
 	Events    int      `json:"events"`
 	Bytes     int      `json:"bytes"`
-	Oversize  bool     `json:"oversize"` // over service.max_feed_bytes
+	Oversize  bool     `json:"oversize"` // over service.max_feed_bytes, the whole window
+	// TrimmedTo is the last date of a feed shortened to fit (oversize:
+	// trim); Events and Bytes are then the shortened feed's.
+	TrimmedTo string `json:"trimmed_to,omitempty"`
 	// shown are the kinds as the text table writes them: with a kinds
 	// entry's offset ("sunrise-30m"), so two sunrise entries read apart
 	shown []string
@@ -156,10 +165,29 @@ func runCheck(ctx context.Context, g *globals, now time.Time, format string) err
 		return err
 	}
 	if format == "json" {
-		return writeCheckJSON(g, r)
+		if err := writeCheckJSON(g, r); err != nil {
+			return err
+		}
+		if len(r.Refused) > 0 {
+			return silentError{refusedError(r.Refused)}
+		}
+		return nil
 	}
-	return writeCheckText(g, r, notes)
+	if err := writeCheckText(g, r, notes); err != nil {
+		return err
+	}
+	if len(r.Refused) > 0 {
+		return refusedError(r.Refused)
+	}
+	return nil
 }
+
+// refusedError is the feeds publish and serve refuse, one per line: a
+// run-time failure (exit 1) as publish's, since a feed's size moves with
+// its window, not a problem of the file.
+type refusedError []string
+
+func (e refusedError) Error() string { return strings.Join(e, "\n") }
 
 // zoneNotes says, for each site without a timezone, which zone was taken
 // from its coordinates.
@@ -185,7 +213,7 @@ func zoneNote(s *config.Site, when time.Time) string {
 // the sites and feeds, the warnings for oversize feeds, and notes for
 // sites whose zone comes from their coordinates.
 func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now time.Time) (*checkReport, []string, error) {
-	srcs, _, err := build(cfg, now, newLayout(cfg.Service.BaseURL))
+	srcs, opts, err := build(cfg, now, newLayout(cfg.Service.BaseURL))
 	if err != nil {
 		return nil, nil, err
 	}
@@ -206,10 +234,6 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		if err != nil {
 			return nil, nil, err
 		}
-		data, err := ical.Marshal(cal, ical.Options{Version: versionString()})
-		if err != nil {
-			return nil, nil, fmt.Errorf("feed %q: %w", f.ID, err)
-		}
 		kinds, shown := make([]string, len(f.Kinds)), make([]string, len(f.Kinds))
 		for j, k := range f.Kinds {
 			kinds[j], shown[j] = k.Kind.String(), k.Kind.String()
@@ -219,9 +243,6 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 				shown[j] += k.Offset.String()
 			}
 		}
-		over := limit > 0 && len(data) > limit
-		r.Feeds = append(r.Feeds, checkFeed{ID: f.ID, Site: f.Site, Kinds: kinds, Plans: len(f.Plans), DaysBack: f.DaysBack, DaysAhead: f.DaysAhead,
-			Events: len(cal.Entries), Bytes: len(data), Oversize: over, shown: shown})
 		for _, e := range cal.Entries {
 			if e.Facts.Note && strings.HasPrefix(e.Kind, "photoperiod:") {
 				r.Warnings = append(r.Warnings, fmt.Sprintf("feed %q: %s: %s; the feed shows only this note for it", f.ID, e.Kind, e.Title))
@@ -233,9 +254,28 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		warnings, later := datesOutsideWindow(&f, shown, cal)
 		r.Warnings = append(r.Warnings, warnings...)
 		r.Notes = append(r.Notes, later...)
-		if over {
-			r.Warnings = append(r.Warnings, publish.OversizeWarning(f.ID, len(data), limit))
+		// encoded as publish and serve encode it, under service.oversize:
+		// as it is, shortened, or refused
+		cf := checkFeed{ID: f.ID, Site: f.Site, Kinds: kinds, Plans: len(f.Plans), DaysBack: f.DaysBack, DaysAhead: f.DaysAhead, shown: shown}
+		data, err := publish.Encode(cal, &opts)
+		var oe *publish.OversizeError
+		switch {
+		case errors.As(err, &oe):
+			cf.Events, cf.Bytes, cf.Oversize = len(cal.Entries), oe.Bytes, true
+			r.Refused = append(r.Refused, publish.OversizeRefusal(f.ID, oe.Bytes, oe.Limit))
+		case err != nil:
+			return nil, nil, fmt.Errorf("feed %q: %w", f.ID, err)
+		case !cal.TrimmedTo.IsZero():
+			cf.Events, cf.Bytes, cf.Oversize, cf.TrimmedTo = len(cal.Entries), len(data), true, cal.TrimmedTo.Format(time.DateOnly)
+			t := publish.Trimmed{Feed: publish.FeedInfo{ID: f.ID, File: f.ID + ".ics", Events: len(cal.Entries), Bytes: len(data)}, To: cal.TrimmedTo}
+			r.Notes = append(r.Notes, publish.TrimNote(t, limit))
+		default:
+			cf.Events, cf.Bytes, cf.Oversize = len(cal.Entries), len(data), limit > 0 && len(data) > limit
+			if cf.Oversize {
+				r.Warnings = append(r.Warnings, publish.OversizeWarning(f.ID, len(data), limit))
+			}
 		}
+		r.Feeds = append(r.Feeds, cf)
 	}
 	return r, notes, nil
 }

@@ -2,6 +2,7 @@ package main
 
 import (
 	"context"
+	"encoding/json"
 	"log/slog"
 	"path/filepath"
 	"regexp"
@@ -29,7 +30,7 @@ feeds:
 
 // oversizeWords is the one wording of the size warning, without its
 // "warning: " on standard error.
-var oversizeWords = regexp.MustCompile(`^feed "meadow" is \d+(\.\d+)? kB, over service\.max_feed_bytes \(20 kB\): some web calendars drop events from subscriptions this large; shorten days_back/days_ahead or split the kinds into several feeds$`)
+var oversizeWords = regexp.MustCompile(`^feed "meadow" is \d+(\.\d+)? kB, over service\.max_feed_bytes \(20 kB\): published as it is, but some web calendars drop events from subscriptions this large; shorten days_back/days_ahead, split the kinds into several feeds, or set service\.oversize: trim$`)
 
 // The size warning of a feed over service.max_feed_bytes writes sizes one
 // way from check, publish and publish --quiet: "41.2 kB" over "20 kB", never
@@ -111,5 +112,57 @@ func TestServeTrimNote(t *testing.T) {
 	code, _, errOut := runCLI(t, "publish", "--config", cfg, "--out", filepath.Join(t.TempDir(), "public"))
 	if code != 0 || !strings.Contains(errOut, "\nnote: "+got[0]+"\n") {
 		t.Errorf("publish: exit %d, stderr %q; want the note %q", code, errOut, got[0])
+	}
+}
+
+// check says what publish and serve do with a feed over max_feed_bytes
+// under each service.oversize, and exits as publish does: warn publishes
+// it as it is (a warning, exit 0), trim shortens it (publish's note, the
+// shortened feed's size in the table, exit 0), fail refuses it (exit 1,
+// naming the feed and its size, in text and in JSON).
+func TestCheckOversizeModes(t *testing.T) {
+	for _, mode := range []string{"warn", "trim", "fail"} {
+		t.Run(mode, func(t *testing.T) {
+			cfg := writeConfig(t, strings.Replace(meadowOversize, "max_feed_bytes: 20000\n", "max_feed_bytes: 20000\n  oversize: "+mode+"\n", 1))
+			pubCode, _, pubErr := runCLI(t, "publish", "--config", cfg, "--out", filepath.Join(t.TempDir(), "public"))
+			code, out, errOut := runCLI(t, "check", "--config", cfg)
+			if code != pubCode {
+				t.Errorf("check exits %d, publish %d (%s)", code, pubCode, pubErr)
+			}
+			switch mode {
+			case "warn":
+				if code != 0 || !strings.Contains(errOut, "warning: feed \"meadow\"") || !strings.Contains(errOut, "published as it is") {
+					t.Errorf("exit %d, stderr %q", code, errOut)
+				}
+			case "trim":
+				note := regexp.MustCompile(`note: meadow\.ics shortened to \d{4}-\d\d-\d\d to stay under 20 kB \(now 1\d(\.\d)? kB, \d+ events\)\n`).FindString(pubErr)
+				if code != 0 || note == "" || !strings.Contains(out, note) || strings.Contains(out+errOut, "shorten days_back") {
+					t.Errorf("exit %d, stdout %q, stderr %q; want publish's note %q and no advice to shorten", code, out, errOut, note)
+				}
+				if m := regexp.MustCompile(`(?m)^meadow .* (\d+(\.\d)? kB)$`).FindStringSubmatch(out); m == nil || !strings.HasPrefix(m[1], "1") {
+					t.Errorf("the table does not show the shortened size:\n%s", out)
+				}
+			case "fail":
+				refused := regexp.MustCompile(`heliocal: feed "meadow" is \d+(\.\d+)? kB, over service\.max_feed_bytes \(20 kB\): publish and serve refuse it \(service\.oversize: fail\)`)
+				if code != exitFailure || !refused.MatchString(errOut) || !strings.Contains(pubErr, "feed meadow") {
+					t.Errorf("exit %d, stderr %q; want %d and %s (publish: %q)", code, errOut, exitFailure, refused, pubErr)
+				}
+				code, out, errOut := runCLI(t, "check", "--config", cfg, "--format", "json")
+				var r struct {
+					Valid   bool
+					Refused []string
+					Feeds   []struct {
+						ID       string
+						Oversize bool
+					}
+				}
+				if err := json.Unmarshal([]byte(out), &r); err != nil {
+					t.Fatal(err)
+				}
+				if code != exitFailure || errOut != "" || len(r.Refused) != 1 || !strings.HasPrefix(r.Refused[0], `feed "meadow" is `) || len(r.Feeds) != 1 || !r.Feeds[0].Oversize {
+					t.Errorf("json: exit %d, stderr %q, report %+v", code, errOut, r)
+				}
+			}
+		})
 	}
 }

@@ -46,6 +46,15 @@ func (o *RenderOptions) encoder() encodeFunc {
 	}
 }
 
+// Encode writes one calendar as Render and Publish write it, with opts's
+// encoder and size limit: under OversizeTrim a calendar over the limit is
+// shortened first (c.Entries and c.TrimmedTo say how far), under
+// OversizeFail it is an *OversizeError. It tells what publishing c gives,
+// without writing anything.
+func Encode(c *feed.Calendar, opts *RenderOptions) ([]byte, error) {
+	return opts.encoder()(nil, c)
+}
+
 // Oversize policies for RenderOptions.Oversize (the configuration's
 // service.oversize).
 const (

@@ -156,11 +156,19 @@ func Warnings(st Stats) []string {
 }
 
 // OversizeWarning is the warning about the feed id of the given size over
-// the limit service.max_feed_bytes, in the one wording of check, publish
-// and serve.
+// the limit service.max_feed_bytes under service.oversize: warn, in the one
+// wording of check, publish and serve.
 func OversizeWarning(id string, bytes, limit int) string {
 	size, most := FormatBytesOver(int64(bytes), int64(limit))
-	return fmt.Sprintf("feed %q is %s, over service.max_feed_bytes (%s): some web calendars drop events from subscriptions this large; shorten days_back/days_ahead or split the kinds into several feeds", id, size, most)
+	return fmt.Sprintf("feed %q is %s, over service.max_feed_bytes (%s): published as it is, but some web calendars drop events from subscriptions this large; shorten days_back/days_ahead, split the kinds into several feeds, or set service.oversize: trim", id, size, most)
+}
+
+// OversizeRefusal says that the feed id of the given size over the limit
+// service.max_feed_bytes is refused under service.oversize: fail: check's
+// words for what publish and serve do with it.
+func OversizeRefusal(id string, bytes, limit int) string {
+	size, most := FormatBytesOver(int64(bytes), int64(limit))
+	return fmt.Sprintf("feed %q is %s, over service.max_feed_bytes (%s): publish and serve refuse it (service.oversize: fail); shorten days_back/days_ahead, split the kinds, or set service.oversize: trim", id, size, most)
 }
 
 // TrimNote is the note about a feed shortened to stay under limit

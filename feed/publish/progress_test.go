@@ -17,7 +17,7 @@ func TestSummary(t *testing.T) {
 	st.Oversize, st.MaxFeedBytes = []FeedInfo{{ID: "farm-all", File: "farm-all.ics", Bytes: 1_300_000}}, 1_000_000
 	got := Summary(st, "/srv/cal/")
 	for _, s := range []string{"published shard 2/8: 12 feeds", "to /srv/cal/; index.html and feeds.json wait for the other shards",
-		`warning: feed "farm-all" is 1.3 MB, over service.max_feed_bytes (1 MB): some web calendars drop events`} {
+		`warning: feed "farm-all" is 1.3 MB, over service.max_feed_bytes (1 MB): published as it is, but some web calendars drop events`} {
 		if !strings.Contains(got, s) {
 			t.Errorf("summary %q lacks %q", got, s)
 		}

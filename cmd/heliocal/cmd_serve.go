@@ -38,7 +38,10 @@ func newServeCommand(g *globals) *cobra.Command {
 seven-day preview at /at.json?.. and a printable day-by-day table at /at?..
 The feeds are rebuilt on the configured schedule (service.refresh, nightly at 03:15 by default)
 and swapped in whole. SIGHUP reloads the configuration: an invalid one is refused and logged,
-and the old feeds keep being served. SIGTERM or SIGINT shut down gracefully.` + exitStatusHelp,
+and the old feeds keep being served. A feed over service.max_feed_bytes under
+service.oversize: fail is refused as publish refuses it: at start serve exits 1 naming the
+feed and its size; later the old feeds keep being served. SIGTERM or SIGINT shut down
+gracefully.` + exitStatusHelp,
 		Example: `  heliocal serve
   heliocal serve --config farm.yaml --listen 127.0.0.1:8080 --base-url https://sky.example.org/`,
 		Args: cobra.NoArgs,

@@ -158,3 +158,85 @@ func grepLines(s, sub string) string {
 	}
 	return strings.Join(out, "\n")
 }
+
+// A feed over max_feed_bytes under oversize: fail is refused by serve as
+// by publish: at start serve stops with exit 1 naming the feed and its
+// size (so a container crash-loops, as deploy/ says, instead of answering
+// 503 "failing" for ever); on a reload the old feeds stay served and
+// /healthz (200) gives the refusal among its reasons, as for an invalid
+// file.
+func TestServeRefusesOversizeFeed(t *testing.T) {
+	const refusing = "service:\n  max_feed_bytes: 2000\n  oversize: fail\n"
+	refused := "feed north-sun: "
+	over := "over service.max_feed_bytes (2 kB)"
+
+	path := filepath.Join(t.TempDir(), "sky.yaml")
+	if err := os.WriteFile(path, []byte(refusing+reloadSite), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	ctx, cancel := context.WithCancel(context.Background())
+	defer cancel()
+	logs := &lockedBuffer{}
+	done := make(chan int, 1)
+	go func() {
+		done <- run(ctx, []string{"serve", "--config", path, "--listen", freePort(t), "--access-log=false"}, io.Discard, logs, noEnv)
+	}()
+	select {
+	case code := <-done:
+		last := logs.String()[strings.LastIndex(strings.TrimSuffix(logs.String(), "\n"), "\n")+1:]
+		if code != exitFailure || !strings.HasPrefix(last, "heliocal: ") || !strings.Contains(last, refused) || !strings.Contains(last, over) {
+			t.Errorf("serve exited %d, last line %q; want %d naming %q and %q", code, last, exitFailure, refused, over)
+		}
+	case <-time.After(60 * time.Second):
+		cancel()
+		t.Fatalf("serve still runs with a refused feed:\n%s", logs.String())
+	}
+
+	// a reload to the refusing file keeps the old feeds
+	if err := os.WriteFile(path, []byte(reloadSite), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	addr := freePort(t)
+	logs = &lockedBuffer{}
+	go func() {
+		done <- run(ctx, []string{"serve", "--config", path, "--listen", addr, "--access-log=false"}, io.Discard, logs, noEnv)
+	}()
+	health := func() (int, string) {
+		resp, err := http.Get("http://" + addr + "/healthz")
+		if err != nil {
+			return 0, ""
+		}
+		defer resp.Body.Close()
+		b, _ := io.ReadAll(resp.Body)
+		return resp.StatusCode, string(b)
+	}
+	waitFor := func(what string, ok func() bool) {
+		t.Helper()
+		for deadline := time.Now().Add(60 * time.Second); !ok(); time.Sleep(50 * time.Millisecond) {
+			if time.Now().After(deadline) {
+				t.Fatalf("timed out waiting for %s\n%s", what, logs.String())
+			}
+		}
+	}
+	waitFor("the first build", func() bool { code, _ := health(); return code == http.StatusOK })
+	if err := os.WriteFile(path, []byte(refusing+reloadSite), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := syscall.Kill(os.Getpid(), syscall.SIGHUP); err != nil {
+		t.Fatal(err)
+	}
+	waitFor("the refused reload", func() bool { _, b := health(); return strings.Contains(b, "reload failed") })
+	code, body := health()
+	if code != http.StatusOK || !strings.Contains(body, refused) || !strings.Contains(body, over) {
+		t.Errorf("/healthz after the refused reload: %d %s", code, body)
+	}
+	if resp, err := http.Get("http://" + addr + "/feeds/north-sun.ics"); err != nil || resp.StatusCode != http.StatusOK {
+		t.Errorf("the old feed is not served: %v", err)
+	} else {
+		resp.Body.Close()
+	}
+	cancel()
+	if code := <-done; code != 0 {
+		t.Errorf("serve exited %d:\n%s", code, logs.String())
+	}
+}

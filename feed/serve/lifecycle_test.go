@@ -3,9 +3,11 @@ package serve
 import (
 	"context"
 	"errors"
+	"fmt"
 	"io"
 	"net"
 	"net/http"
+	"strings"
 	"sync/atomic"
 	"testing"
 	"testing/synctest"
@@ -193,6 +195,34 @@ func TestInitialBuildRetries(t *testing.T) {
 			t.Error("built again although a bundle is served")
 		}
 	})
+}
+
+// TestRunStopsOnRefusedFeed: a first build that fails because a feed is
+// over its size limit under oversize: fail is not retried (no retry mends
+// it): Run shuts down and returns the error, as publish stops with it,
+// instead of answering 503 "failing" for ever. A build failing otherwise
+// is still retried (TestInitialBuildRetries).
+func TestRunStopsOnRefusedFeed(t *testing.T) {
+	var n atomic.Int32
+	refusal := &publish.OversizeError{Feed: "plot-sun", Bytes: 1_200_000, Limit: 1_000_000}
+	s, err := New(Options{
+		Build: func(context.Context) (*publish.Bundle, error) {
+			n.Add(1)
+			return nil, fmt.Errorf("publish: feed plot-sun: %w", refusal)
+		},
+		Logger: quiet(), Metrics: NewRegistry(),
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	err = s.Run(t.Context(), listen(t))
+	var oe *publish.OversizeError
+	if !errors.As(err, &oe) || oe != refusal || !strings.Contains(err.Error(), "plot-sun: 1.2 MB, over service.max_feed_bytes (1 MB)") {
+		t.Errorf("Run = %v, want the refusal naming the feed and its size", err)
+	}
+	if got := n.Load(); got != 1 {
+		t.Errorf("%d builds, want 1 (no retry)", got)
+	}
 }
 
 // TestScheduledRefresh: the refresh runs on the cron schedule, on the fake

@@ -453,7 +453,10 @@ func (s *Server) runBuild(ctx context.Context, build BuildFunc) (snap *snapshot,
 // in-flight requests and a running refresh finish within
 // Options.ShutdownTimeout, and returns nil. If the first build fails the
 // server still answers (503 on /healthz and the feed routes) and retries with
-// back-off until a build succeeds. Run closes ln. A Server runs once.
+// back-off until a build succeeds; but if it fails because a feed is over
+// its size limit under service.oversize: fail (*publish.OversizeError),
+// which no retry mends, Run shuts down the same way and returns that error.
+// Run closes ln. A Server runs once.
 func (s *Server) Run(ctx context.Context, ln net.Listener) error {
 	s.runMu.Lock()
 	if s.running {
@@ -482,9 +485,12 @@ func (s *Server) Run(ctx context.Context, ln net.Listener) error {
 
 	buildCtx, cancelBuild := context.WithCancel(ctx)
 	initialDone := make(chan struct{})
+	refused := make(chan error, 1)
 	go func() {
 		defer close(initialDone)
-		s.initialBuild(buildCtx)
+		if err := s.initialBuild(buildCtx); err != nil {
+			refused <- err
+		}
 	}()
 	s.sched.Start(ctx)
 
@@ -495,6 +501,9 @@ func (s *Server) Run(ctx context.Context, ln net.Listener) error {
 	case err := <-serveErr:
 		runErr = fmt.Errorf("serve: %w", err)
 		s.log.Error("server stopped", "err", err)
+	case err := <-refused:
+		runErr = err
+		s.log.Error("the feeds cannot be built from this configuration; stopping", "err", err)
 	}
 
 	sctx, cancel := context.WithTimeout(context.WithoutCancel(ctx), s.opts.ShutdownTimeout)
@@ -527,23 +536,31 @@ func (s *Server) ListenAndRun(ctx context.Context, addr string) error {
 
 // initialBuild builds until one build has succeeded (here, on schedule or by
 // Reload), waiting RetryMin, then twice as long each time up to RetryMax.
-func (s *Server) initialBuild(ctx context.Context) {
+// A build that fails because a feed is over its size limit under
+// service.oversize: fail (a *publish.OversizeError) is not retried, as
+// no retry mends it: initialBuild returns the error, and Run stops with
+// it, as publish does, unless feeds are served by then.
+func (s *Server) initialBuild(ctx context.Context) error {
 	wait := s.opts.RetryMin
 	trigger := triggerInitial
 	for {
 		if s.snap.Load() != nil {
-			return
+			return nil
 		}
 		err := s.refresh(ctx, trigger, nil)
 		if err == nil || ctx.Err() != nil {
-			return
+			return nil
+		}
+		var oe *publish.OversizeError
+		if errors.As(err, &oe) && s.snap.Load() == nil {
+			return err
 		}
 		s.log.Warn("no feeds to serve yet; retrying", "in", wait)
 		t := time.NewTimer(wait)
 		select {
 		case <-ctx.Done():
 			t.Stop()
-			return
+			return nil
 		case <-t.C:
 		}
 		wait = min(2*wait, s.opts.RetryMax)

@@ -1164,7 +1164,7 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 	if e.Solar != nil || e.Lunar != nil {
 		f.Eclipse = e.EclipseFacts()
 	}
-	if spec.AllDay || e.Kind.Name == "photoperiod" {
+	if entryAllDay(spec, &e.Kind) {
 		d := z.date(en.Start)
 		en.AllDay, en.Start, en.End, en.Date = true, d, d.AddDate(0, 0, 1), d
 	}
@@ -1272,10 +1272,7 @@ func keep(es []Entry, from int, spec config.KindSpec) []Entry {
 	out := es[:from]
 	for i := from; i < len(es); i++ {
 		e := &es[i]
-		if !f.Allows(e.Date) {
-			continue
-		}
-		if minLen > 0 && !e.AllDay && !e.End.IsZero() && e.End.Sub(e.Start) < minLen {
+		if !kept(f, minLen, e.Date, e.Start, e.End, e.AllDay) {
 			continue
 		}
 		if len(out) != i {
@@ -1285,4 +1282,46 @@ func keep(es []Entry, from int, spec config.KindSpec) []Entry {
 	}
 	clear(es[len(out):]) // what entryWriter.next expects past the length
 	return out
+}
+
+// kept reports whether a kinds entry with the date filter f and the
+// min_duration minLen keeps its entry of the local date date, from start
+// to end (zero for an instant), all-day or not: an all-day entry or an
+// instant has no length to fall short of the minimum.
+func kept(f config.DateFilter, minLen time.Duration, date, start, end time.Time, allDay bool) bool {
+	if !f.Allows(date) {
+		return false
+	}
+	return minLen <= 0 || allDay || end.IsZero() || end.Sub(start) >= minLen
+}
+
+// entryAllDay reports whether spec makes the entry of an event of kind k
+// all-day: on the local date of its start (offset included), with no length.
+func entryAllDay(spec *config.KindSpec, k *config.Kind) bool {
+	return spec.AllDay || k.Name == "photoperiod"
+}
+
+// keepEvents applies the date filters and min_duration of spec to the
+// events it gave (evs) and their notes as keep applies them to the
+// entries made of them, in place, and returns what is kept: an event is
+// kept when its entry is, dated and measured as entryWriter.event makes it
+// (an all-day entry on the local date in loc of its start with spec's
+// offset). Notes are all-day entries of their date.
+func keepEvents(evs []Event, notes []Note, spec config.KindSpec, loc *time.Location) ([]Event, []Note) {
+	f, minLen := spec.Filter(), spec.MinDuration.D()
+	if f.IsZero() && minLen <= 0 {
+		return evs, notes
+	}
+	offset := spec.Offset.D()
+	if loc == nil {
+		loc = time.UTC
+	}
+	evs = slices.DeleteFunc(evs, func(e Event) bool {
+		if entryAllDay(&spec, &e.Kind) {
+			return !kept(f, minLen, localDate(e.Start.Add(offset), loc), e.Start, e.End, true)
+		}
+		return !kept(f, minLen, e.Date, e.Start, e.End, false)
+	})
+	notes = slices.DeleteFunc(notes, func(n Note) bool { return !kept(f, minLen, n.Date, n.Date, time.Time{}, true) })
+	return evs, notes
 }

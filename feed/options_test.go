@@ -144,3 +144,69 @@ func TestKeepClearsDropped(t *testing.T) {
 		t.Errorf("next gave %+v, %d entries", *e, len(w.out))
 	}
 }
+
+// TestEventsForKeepsAsEntries: EventsFor gives a kinds entry's events that
+// its feed's entries keep, with the same date filters and min_duration
+// (the year chart draws them): dark windows of 45 min or more on Fridays
+// and Saturdays, lamps in January and February, and the seasons as all-day
+// entries 12 h late on the one date listed, the day after the March
+// equinox in Colorado (in the afternoon of 20 March 2027 there: 12 h later
+// is the 21st; the date comes from the start with the offset, as the
+// entry's).
+func TestEventsForKeepsAsEntries(t *testing.T) {
+	s := site(t, "hill", 39.08, -105.42, "America/Denver")
+	first, last := date("2027-01-01"), date("2027-06-30")
+	sk := sky(t, "2027-01-01", "2027-06-30")
+	for _, spec := range []config.KindSpec{
+		{Kind: mustKinds(t, "dark-window")[0], MinDuration: config.Duration(45 * time.Minute), Weekdays: []string{"fri", "sat"}},
+		{Kind: mustKinds(t, "lighting:14h")[0], Lamps: "both", Months: []string{"jan", "feb"}},
+		{Kind: mustKinds(t, "seasons")[0], AllDay: true, Offset: config.Duration(12 * time.Hour), Dates: []string{"2027-03-21"}},
+	} {
+		t.Run(spec.Kind.String(), func(t *testing.T) {
+			es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, first, last)
+			if err != nil {
+				t.Fatal(err)
+			}
+			evs, _, err := sk.EventsFor(context.Background(), PlaceOf(s), []config.KindSpec{spec}, first, last)
+			if err != nil {
+				t.Fatal(err)
+			}
+			var want []string // the entries' dates and times, as the events give them
+			for _, e := range es {
+				if e.Facts.Note {
+					continue
+				}
+				if e.AllDay {
+					want = append(want, e.Date.Format(time.DateOnly))
+				} else {
+					want = append(want, e.Date.Format(time.DateOnly)+" "+e.Start.Add(-spec.Offset.D()).Format(time.RFC3339)+" "+e.End.Add(-spec.Offset.D()).Format(time.RFC3339))
+				}
+			}
+			var got []string
+			for _, e := range evs {
+				if spec.AllDay {
+					got = append(got, e.Start.Add(spec.Offset.D()).In(s.TimeZone.Location).Format(time.DateOnly))
+				} else {
+					got = append(got, e.Date.Format(time.DateOnly)+" "+e.Start.Format(time.RFC3339)+" "+e.End.Format(time.RFC3339))
+				}
+			}
+			if len(want) == 0 || len(want) == len(evsAll(t, sk, s, spec, first, last)) {
+				t.Fatalf("%d entries kept: the filters keep nothing or everything, the test checks nothing", len(want))
+			}
+			if !reflect.DeepEqual(got, want) {
+				t.Errorf("events %v\nentries %v", got, want)
+			}
+		})
+	}
+}
+
+// evsAll is the events of spec without its date filters and min_duration.
+func evsAll(t *testing.T, sk *Sky, s *config.Site, spec config.KindSpec, first, last time.Time) []Event {
+	t.Helper()
+	spec.Weekdays, spec.Months, spec.Dates, spec.MinDuration = nil, nil, nil, 0
+	evs, _, err := sk.EventsFor(context.Background(), PlaceOf(s), []config.KindSpec{spec}, first, last)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return evs
+}

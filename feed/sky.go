@@ -292,8 +292,14 @@ func (s *Sky) Events(ctx context.Context, p Place, kinds []config.Kind, first, l
 }
 
 // EventsFor is Events with the options of each kind that change what is
-// computed (a dark window's largest illuminated fraction); the options that
-// only change how entries look (offset, label) are for the catalogue.
+// computed (a dark window's largest illuminated fraction, the lamps'
+// options) or kept: the events and notes are those the kind's entries in a
+// feed keep, with its date filters (weekdays, months, dates) and
+// min_duration applied as the catalogue applies them (a date whose spans
+// min_duration all leaves out has its note). The options that only change
+// how entries look (offset, label, all_day) are for the catalogue: the
+// events keep their own times (an all-day entry's date, that of its start
+// with the offset, is the one its filter reads).
 func (s *Sky) EventsFor(ctx context.Context, p Place, specs []config.KindSpec, first, last time.Time) ([]Event, []Note, error) {
 	return s.eventsFor(ctx, p, specs, first, last, &buffers{})
 }
@@ -739,11 +745,16 @@ func (s *Sky) computeEvents(ctx context.Context, p Place, specs []config.KindSpe
 	// put in order into a second slice (sortByKey).
 	runs := buf.order.runs[:0]
 	for _, k := range specs {
-		runs = append(runs, int32(len(c.events)))
+		n0, m0 := len(c.events), len(c.notes)
+		runs = append(runs, int32(n0))
 		c.maxLit, c.spec = k.MaxIllumination, k
 		if err := c.add(k.Kind); err != nil {
 			return nil, nil, nil, nil, fmt.Errorf("feed: %s: %w", k.Kind, err)
 		}
+		// what the kind's entries keep, as the catalogue's keep
+		c.noteUnderMinimum(k, n0)
+		evs, ns := keepEvents(c.events[n0:], c.notes[m0:], k, p.Location)
+		c.events, c.notes = c.events[:n0+len(evs)], c.notes[:m0+len(ns)]
 	}
 	runs = append(runs, int32(len(c.events)))
 	buf.order.runs = runs

@@ -67,6 +67,10 @@ type Mark struct {
 type Level struct {
 	Length time.Duration
 	Label  string
+	// Keeps, when set, says which crossings are drawn: those on the local
+	// dates it keeps (the dates a feed's filtered kinds entry has them).
+	// Nil draws every crossing.
+	Keeps func(date time.Time) bool
 }
 
 // Phase is a new or full Moon.
@@ -447,7 +451,7 @@ func thresholdViews(days []ChartDay, levels []Level) []thresholdView {
 	for _, lv := range levels {
 		for i := 1; i < len(days); i++ {
 			was, is := days[i-1].Daylight >= lv.Length, days[i].Daylight >= lv.Length
-			if was != is {
+			if was != is && (lv.Keeps == nil || lv.Keeps(days[i].Date)) {
 				cs = append(cs, crossing{i: i, up: is, lv: lv})
 			}
 		}

@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"slices"
 	"strings"
 	"sync"
 	"time"
@@ -125,22 +126,42 @@ func chartsFor(cfg *config.Config, now time.Time, feeds *feed.Sky) func(context.
 			return nil, err
 		}
 		chart.Today = today
-		levels, marks, spanKinds := chartKinds(cfg, site.ID)
-		chart.Levels = levels
-		// One search for the clock's kinds and the marks: the site's
-		// crossings of the Sun (over its skyline too) are found once.
+		levels, kinds := chartKinds(cfg, site.ID)
+		// One search for the clock's kinds and the feeds' kinds: the
+		// site's crossings of the Sun (over its skyline too) are found once.
 		var specs []config.KindSpec
-		for _, k := range append([]config.Kind{chartKind("sunrise"), chartKind("sunset"), chartKind("new-moon"), chartKind("full-moon")}, marks...) {
-			specs = append(specs, config.KindSpec{Kind: k})
+		for _, name := range []string{"sunrise", "sunset", "new-moon", "full-moon"} {
+			specs = append(specs, config.KindSpec{Kind: chartKind(name)})
 		}
-		events, _, err := sky.EventsFor(ctx, place, append(specs, spanKinds...), first, last)
+		events, _, err := sky.EventsFor(ctx, place, append(specs, kinds...), first, last)
 		if err != nil {
 			return nil, err
 		}
+		// The feeds' kinds entries may keep the same event twice (the same
+		// kind with other filters): it is drawn once.
+		marked := map[publish.Mark]bool{}
+		crossed := map[time.Duration]map[time.Time]bool{}
 		for _, e := range events {
-			if !chartClock(e, site.TimeZone.Location, chart) {
-				chart.Marks = append(chart.Marks, publish.Mark{At: e.Start, Label: markLabel(e)})
+			switch {
+			case e.Kind.Name == "photoperiod":
+				if crossed[e.Kind.DayLength] == nil {
+					crossed[e.Kind.DayLength] = map[time.Time]bool{}
+				}
+				crossed[e.Kind.DayLength][e.Date] = true
+			case !chartClock(e, site.TimeZone.Location, chart):
+				if m := (publish.Mark{At: e.Start, Label: markLabel(e)}); !marked[m] {
+					chart.Marks = append(chart.Marks, m)
+					marked[m] = true
+				}
 			}
+		}
+		chart.Lamps, chart.Dark = uniqueSpans(chart.Lamps), uniqueSpans(chart.Dark)
+		for _, lv := range levels {
+			// the crossings the feeds keep, on the dates they have them
+			if days := crossed[lv.Length]; lv.Filtered {
+				lv.Keeps = func(d time.Time) bool { return days[d] }
+			}
+			chart.Levels = append(chart.Levels, lv.Level)
 		}
 		return chart, nil
 	}
@@ -159,27 +180,38 @@ func chartDays(sky *feed.Sky, place feed.Place, first, last time.Time) ([]publis
 	return days, nil
 }
 
+// chartLevel is a photoperiod threshold of the chart, Filtered when every
+// kinds entry of it keeps some of its crossings only (date filters): the
+// chart then draws those its feeds keep.
+type chartLevel struct {
+	publish.Level
+	Filtered bool
+}
+
 // chartKinds collects, from every feed of the site, the photoperiod
-// thresholds (drawn as levels), the yearly kinds drawn as marks: the
-// seasons, cross-quarter days, apsides and eclipses (not the Moon's phases,
-// which the chart draws as symbols of their own), and the lamp periods and
-// dark windows drawn on the clock, each with the options that set when they
-// are (the lamps' end of the day, their limits and minimum, what counts as
-// natural light; the dark window's Moon), so that the chart draws them where
-// the feed puts them. Each kind counts once, a lamp or dark-window kind once
-// per set of those options.
-func chartKinds(cfg *config.Config, siteID string) ([]publish.Level, []config.Kind, []config.KindSpec) {
-	var levels []publish.Level
-	var marks []config.Kind
-	var spanKinds []config.KindSpec
-	seen := map[string]bool{}
-	type spanKey struct {
+// thresholds (drawn as levels) and the kinds entries whose events the chart
+// draws: the yearly kinds drawn as marks (the seasons, cross-quarter days,
+// apsides and eclipses, not the Moon's phases, which the chart draws as
+// symbols of their own), the lamp periods and dark windows drawn on the
+// clock, and the photoperiod thresholds, whose crossings the chart marks.
+// Each entry keeps the options that set which events its feed has (the
+// lamps' end of the day, their limits and minimum, what counts as natural
+// light; the dark window's Moon; min_duration, the date filters, all_day
+// with its offset), so that the chart draws what the feed keeps. Entries
+// with the same such options are computed once.
+func chartKinds(cfg *config.Config, siteID string) ([]chartLevel, []config.KindSpec) {
+	var levels []chartLevel
+	var specs []config.KindSpec
+	type specKey struct {
 		kind                                  string
 		maxLit                                float64
-		min                                   config.Duration
+		min, offset                           config.Duration
+		allDay                                bool
 		lamps, natural, latestOff, earliestOn string
+		weekdays, months, dates               string
 	}
-	spanSeen := map[spanKey]bool{}
+	seen := map[specKey]bool{}
+	level := map[time.Duration]int{} // index in levels
 	for _, f := range cfg.Feeds {
 		if f.Site != siteID {
 			continue
@@ -187,26 +219,51 @@ func chartKinds(cfg *config.Config, siteID string) ([]publish.Level, []config.Ki
 		for _, ks := range f.Kinds {
 			k := ks.Kind
 			switch {
-			case k.Name == config.KindLighting || k.Name == "dark-window":
-				sp := config.KindSpec{Kind: k, MaxIllumination: ks.MaxIllumination}
-				if k.Name == config.KindLighting {
-					sp.MinDuration, sp.Lamps, sp.Natural, sp.LatestOff, sp.EarliestOn = ks.MinDuration, ks.Lamps, ks.Natural, ks.LatestOff, ks.EarliestOn
-				}
-				key := spanKey{k.String(), sp.MaxIllumination, sp.MinDuration, sp.Lamps, sp.Natural, sp.LatestOff, sp.EarliestOn}
-				if !spanSeen[key] {
-					spanKinds = append(spanKinds, sp)
-				}
-				spanSeen[key] = true
-			case seen[k.String()]:
-			case k.Name == "photoperiod":
-				levels = append(levels, publish.Level{Length: k.DayLength})
+			case k.Name == config.KindLighting || k.Name == "dark-window" || k.Name == "photoperiod":
 			case k.IsYearly() && (!k.IsMoon() || k.Family() == config.FamilyEclipse):
-				marks = append(marks, k)
+			default:
+				continue
 			}
-			seen[k.String()] = true
+			filtered := !ks.Filter().IsZero()
+			if k.Name == "photoperiod" {
+				if i, ok := level[k.DayLength]; !ok {
+					level[k.DayLength] = len(levels)
+					levels = append(levels, chartLevel{Level: publish.Level{Length: k.DayLength}, Filtered: filtered})
+				} else if !filtered {
+					levels[i].Filtered = false
+				}
+				if !filtered {
+					continue // every crossing drawn: no need of the feed's
+				}
+			}
+			sp := config.KindSpec{Kind: k, MaxIllumination: ks.MaxIllumination, MinDuration: ks.MinDuration,
+				AllDay: ks.AllDay, Offset: ks.Offset, Weekdays: ks.Weekdays, Months: ks.Months, Dates: ks.Dates}
+			if k.Name == config.KindLighting {
+				sp.Lamps, sp.Natural, sp.LatestOff, sp.EarliestOn = ks.Lamps, ks.Natural, ks.LatestOff, ks.EarliestOn
+			}
+			if sp.Filter().IsZero() {
+				sp.Offset = 0 // it moves only the date a filter reads (an all-day entry's)
+			}
+			key := specKey{k.String(), sp.MaxIllumination, sp.MinDuration, sp.Offset, sp.AllDay, sp.Lamps, sp.Natural, sp.LatestOff, sp.EarliestOn,
+				strings.Join(sp.Weekdays, ","), strings.Join(sp.Months, ","), strings.Join(sp.Dates, ",")}
+			if !seen[key] {
+				specs = append(specs, sp)
+			}
+			seen[key] = true
 		}
 	}
-	return levels, marks, spanKinds
+	return levels, specs
+}
+
+// uniqueSpans drops the pieces of spans that are the same as one before
+// them, in place.
+func uniqueSpans(spans []publish.ClockSpan) []publish.ClockSpan {
+	seen := make(map[publish.ClockSpan]bool, len(spans))
+	return slices.DeleteFunc(spans, func(s publish.ClockSpan) bool {
+		dup := seen[s]
+		seen[s] = true
+		return dup
+	})
 }
 
 // chartKind parses a kind name the chart always draws.

@@ -187,6 +187,10 @@ func TestServeRefusesOversizeFeed(t *testing.T) {
 		if code != exitFailure || !strings.HasPrefix(last, "heliocal: ") || !strings.Contains(last, refused) || !strings.Contains(last, over) {
 			t.Errorf("serve exited %d, last line %q; want %d naming %q and %q", code, last, exitFailure, refused, over)
 		}
+		// nothing was served: the log does not speak of previous feeds
+		if strings.Contains(logs.String(), "previous feeds") || !strings.Contains(logs.String(), "no feeds to serve yet") {
+			t.Errorf("the first build's failure is logged as:\n%s", logs.String())
+		}
 	case <-time.After(60 * time.Second):
 		cancel()
 		t.Fatalf("serve still runs with a refused feed:\n%s", logs.String())

@@ -407,7 +407,11 @@ func (s *Server) refresh(ctx context.Context, trigger string, next BuildFunc) (e
 		s.metrics.refreshes.WithLabelValues(trigger, "failure").Inc()
 		s.metrics.lastOK.Set(0)
 		if trigger != triggerSchedule { // the scheduler logs its own runs
-			s.log.Error("refresh failed; serving the previous feeds", "trigger", trigger, "err", err, "duration", d)
+			msg := "refresh failed; serving the previous feeds"
+			if s.snap.Load() == nil { // the first build: there are none
+				msg = "refresh failed; no feeds to serve yet"
+			}
+			s.log.Error(msg, "trigger", trigger, "err", err, "duration", d)
 		}
 		return err
 	}

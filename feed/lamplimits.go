@@ -169,7 +169,7 @@ func (g LampLimitGap) DatesText() string {
 			parts[i] = a.Format("2 Jan 2006") + "–" + b.Format("2 Jan 2006")
 		}
 	}
-	list := andList(parts)
+	list := AndList(parts)
 	if n == len(stretches) { // single dates
 		return fmt.Sprintf("on %d dates: %s", n, list)
 	}

@@ -612,7 +612,7 @@ func kindMeanings(s *config.Site, specs []config.KindSpec) []string {
 		out = append(out, photoperiodMeaning(s, thresholds))
 	}
 	for i, m := range filters { // "Golden hour, blue hour and sunset: only on …"
-		out = append(out, andList(strings.Split(filterKinds[i], "\x00"))+": only "+m+".")
+		out = append(out, AndList(strings.Split(filterKinds[i], "\x00"))+": only "+m+".")
 	}
 	if azimuth {
 		out = append(out, azimuthMeaning)
@@ -650,7 +650,7 @@ func filterMeaning(spec config.KindSpec) (name, phrase string) {
 		}
 	}
 	if len(names) > 0 {
-		parts = append(parts, "on "+andList(names))
+		parts = append(parts, "on "+AndList(names))
 	}
 	names = nil
 	for m := time.January; m <= time.December; m++ {
@@ -659,7 +659,7 @@ func filterMeaning(spec config.KindSpec) (name, phrase string) {
 		}
 	}
 	if len(names) > 0 {
-		parts = append(parts, "in "+andList(names))
+		parts = append(parts, "in "+AndList(names))
 	}
 	var dates []time.Time
 	for _, d := range spec.Dates {
@@ -673,7 +673,7 @@ func filterMeaning(spec config.KindSpec) (name, phrase string) {
 		for _, d := range dates {
 			names = append(names, d.Format("2 January 2006"))
 		}
-		parts = append(parts, "on "+andList(names))
+		parts = append(parts, "on "+AndList(names))
 	}
 	if len(parts) == 0 {
 		return "", ""
@@ -682,8 +682,9 @@ func filterMeaning(spec config.KindSpec) (name, phrase string) {
 	return strings.ToUpper(name[:1]) + name[1:], strings.Join(parts, ", ")
 }
 
-// andList joins words as a sentence lists them: "a", "a and b", "a, b and c".
-func andList(words []string) string {
+// AndList joins words as a sentence lists them: "a", "a and b", "a, b and
+// c".
+func AndList(words []string) string {
 	if len(words) < 2 {
 		return strings.Join(words, "")
 	}

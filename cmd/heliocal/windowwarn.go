@@ -2,7 +2,6 @@ package main
 
 import (
 	"fmt"
-	"strings"
 	"time"
 
 	"heliocal/config"
@@ -43,7 +42,7 @@ func datesOutsideWindow(f *config.Feed, shown []string, cal *feed.Calendar) (war
 		}
 	}
 	for _, d := range order {
-		entries := andList(named[d])
+		entries := feed.AndList(named[d])
 		if d.Before(first) {
 			warnings = append(warnings, fmt.Sprintf("feed %q: %s: %s is before the window's start %s (days_back: %d): it will never be published",
 				f.ID, entries, d.Format(time.DateOnly), first.Format(time.DateOnly), f.DaysBack))
@@ -64,12 +63,4 @@ func windowDates(cal *feed.Calendar) (first, last time.Time) {
 		return time.Date(t.Year(), t.Month(), t.Day(), 0, 0, 0, 0, time.UTC)
 	}
 	return date(cal.WindowStart), date(cal.WindowEnd).AddDate(0, 0, -1)
-}
-
-// andList joins words as a sentence lists them: "a", "a and b", "a, b and c".
-func andList(words []string) string {
-	if len(words) < 2 {
-		return strings.Join(words, "")
-	}
-	return strings.Join(words[:len(words)-1], ", ") + " and " + words[len(words)-1]
 }

@@ -209,9 +209,13 @@ func zoneNote(s *config.Site, when time.Time) string {
 		s.ID, config.DescribeZone(s.TimeZone.Location, when), feed.Coords(s.Latitude, s.Longitude, 4))
 }
 
-// checkConfig builds every feed of a valid configuration once and reports
-// the sites and feeds, the warnings for oversize feeds, and notes for
-// sites whose zone comes from their coordinates.
+// checkConfig builds every feed of a valid configuration once, encoded as
+// publish encodes it under service.oversize, and reports the sites and
+// feeds, the warnings (a feed over max_feed_bytes under warn, a photoperiod
+// kind that gives only a note, lighting limits that do not limit, dates
+// before a feed's window), the notes (dates after a feed's window, a feed
+// shortened under trim) and the feeds refused under fail; it returns apart
+// the notes for sites whose zone comes from their coordinates.
 func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now time.Time) (*checkReport, []string, error) {
 	srcs, opts, err := build(cfg, now, newLayout(cfg.Service.BaseURL))
 	if err != nil {
@@ -281,8 +285,10 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 }
 
 // writeCheckText prints the report as two tables on standard output, the
-// warnings on standard error. The tables are written in one piece, so that
-// an output that cannot take them (a full disk, a closed pipe) is an error.
+// zone notes after the sites' and the report's notes after the feeds', and
+// the warnings on standard error. Standard output is written in one piece,
+// so that an output that cannot take it (a full disk, a closed pipe) is an
+// error.
 func writeCheckText(g *globals, r *checkReport, notes []string) error {
 	w := new(bytes.Buffer)
 	fmt.Fprintf(w, "configuration: %s (valid)\n\n", r.Configuration)

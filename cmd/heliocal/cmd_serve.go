@@ -100,7 +100,7 @@ func reloadServe(ctx context.Context, g *globals, log *slog.Logger, srv *serve.S
 // at WARN, after the first build that shortens it.
 func serveBuild(cfg *config.Config, base string, log *slog.Logger) serve.BuildFunc {
 	var mu sync.Mutex
-	logged := map[string]bool{} // the limits warned about by the latest build
+	logged := map[string]bool{} // what the latest build warned about: lamp limits, feeds shortened or over the limit
 	return func(ctx context.Context) (*publish.Bundle, error) {
 		srcs, opts, err := build(cfg, time.Now(), newLayout(base))
 		if err != nil {
@@ -115,25 +115,22 @@ func serveBuild(cfg *config.Config, base string, log *slog.Logger) serve.BuildFu
 		mu.Lock()
 		defer mu.Unlock()
 		found := map[string]bool{}
-		for _, w := range lamps.warnings() {
-			if !logged[w.limit] {
-				log.Warn(w.text)
+		warn := func(key, text string) { // unless the build before warned of it
+			if !logged[key] {
+				log.Warn(text)
 			}
-			found[w.limit] = true
+			found[key] = true
+		}
+		for _, w := range lamps.warnings() {
+			warn(w.limit, w.text)
 		}
 		for _, t := range b.Trimmed { // service.oversize: trim: publish's note
-			if key := "trimmed:" + t.Feed.ID; !logged[key] {
-				log.Warn(publish.TrimNote(t, opts.MaxFeedBytes))
-			}
-			found["trimmed:"+t.Feed.ID] = true
+			warn("trimmed:"+t.Feed.ID, publish.TrimNote(t, opts.MaxFeedBytes))
 		}
 		if opts.Oversize == "" || opts.Oversize == publish.OversizeWarn { // published all the same: say so, as publish does
 			for _, f := range b.Feeds {
 				if limit := opts.MaxFeedBytes; limit > 0 && f.Bytes > limit {
-					if key := "oversize:" + f.ID; !logged[key] {
-						log.Warn(publish.OversizeWarning(f.ID, f.Bytes, limit))
-					}
-					found["oversize:"+f.ID] = true
+					warn("oversize:"+f.ID, publish.OversizeWarning(f.ID, f.Bytes, limit))
 				}
 			}
 		}

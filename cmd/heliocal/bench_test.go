@@ -180,10 +180,9 @@ func BenchmarkAdhocPreview(b *testing.B) {
 
 // BenchmarkPreviewLampsNote: the builder's preview (/at.json) of a week
 // that needs no lamps, whose note looks beyond the week for the date the
-// lamps are needed again, as the subscribed feed does: within the first
-// eight weeks (vienna) or only further (tromso, and utqiagvik at 71.29° N,
-// with the Moon's kinds too). cpu-ms/op is the process's CPU time per
-// request.
+// lamps are needed again, as the subscribed feed does: 2 July, within two
+// weeks (vienna), or months on (tromso, and utqiagvik at 71.29° N, with
+// the Moon's kinds too). cpu-ms/op is the process's CPU time per request.
 func BenchmarkPreviewLampsNote(b *testing.B) {
 	benchPreviews(b, previewServer(b, "sunrise", "sunset"), []struct{ name, query string }{
 		{"vienna", "lat=48.2&lon=16.4&tz=Europe/Vienna&kinds=lighting:16h,sunrise,sunset&start=2027-06-20"},

@@ -11,15 +11,14 @@ import (
 
 // The preview's "no lamps needed" note says what the subscribed feed says
 // on the same dates, not the end of the preview's seven days. At 48.2° N a
-// natural day of 16 h or more lasts from about 11 June to 1 July (USNO
-// Duration of Daylight table for 48° N, a longest day of about 16 h 05 min;
-// value from memory; TestLightingNoLampsNote), so a preview from 20 June
-// lies inside the stretch: the feed from that date, as long as the preview's
+// natural day of 16 h or more lasts from 11 June to 1 July 2027 (PyEphem
+// 4.1.4, tools/pyephem-checks/values.py), so a preview from 20 June lies
+// inside the stretch: the feed from that date, as long as the preview's
 // subscription, titles its first date "No lamps needed until 2 Jul" or so,
 // where the preview alone would have said "through 26 Jun". At 69.65° N
-// (Tromsø) days of 16 h or more last from late April to late August (value
-// from memory), longer than the preview's first look ahead of eight weeks:
-// from 20 May the note needs the whole feed, and names a date in August.
+// (Tromsø) days of 16 h or more last from 15 April to 28 August 2027
+// (PyEphem 4.1.4, values.py): from 20 May the note looks three months
+// ahead, and names a date in August.
 func TestPreviewLampsNoteAsFed(t *testing.T) {
 	ts := builderServer(t)
 	for _, tc := range []struct{ place, start, month string }{
@@ -38,14 +37,13 @@ func TestPreviewLampsNoteAsFed(t *testing.T) {
 	}
 }
 
-// At 71.29° N (Utqiaġvik) a natural day of 12 h or more lasts from about
-// the March equinox to about the September one, a few days longer for the
-// refraction (value from memory). With a dozen kinds the subscription is
-// shorter than a year: from 3 April it ends before the stretch does, and
-// the feed's note from that date says so, "No lamps needed through" its own
-// last date; from 20 May it ends after, and the note names a date in
-// September, beyond the first eight weeks. The preview says what the feed
-// says in both.
+// At 71.29° N (Utqiaġvik) a natural day of 12 h or more lasts from 18 March
+// to 24 September 2027 (PyEphem 4.1.4, tools/pyephem-checks/values.py).
+// With a dozen kinds the subscription is shorter than a year: from 3 April
+// it ends before the stretch does, and the feed's note from that date says
+// so, "No lamps needed through" its own last date; from 20 May it ends
+// after, and the note names a date in September (25 September, the first
+// that needs lamps again). The preview says what the feed says in both.
 func TestPreviewLampsNoteSubscriptionEnd(t *testing.T) {
 	ts := builderServer(t)
 	const kinds = "lighting:12h,sunrise,sunset,civil-dawn,civil-dusk,golden-hour,blue-hour,moonrise,moonset,solar-noon,nautical-dawn,nautical-dusk"

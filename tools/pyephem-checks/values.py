@@ -14,7 +14,9 @@ TestDayLengthEndOfMidnightSun;
 astro/atmosphere_test.go TestRefractionScaling; cmd/heliocal/main_test.go
 TestEventsAzimuth; feed/plan_test.go TestPlanEndFirstAfterStart,
 TestPlanDateOnlyAnchor, TestPlanEveningStart and TestPlanEndClockPassed; feed/lighting_test.go
-TestLightingMinimumNamesTheDroppedPeriod, TestLightingUnderAMinute and TestLightingEntries).
+TestLightingMinimumNamesTheDroppedPeriod, TestLightingUnderAMinute and TestLightingEntries;
+cmd/heliocal/preview_lamps_test.go TestPreviewLampsNoteAsFed and
+TestPreviewLampsNoteSubscriptionEnd).
 
 Definitions, matched to heliocal's:
   * sunrise/sunset: the Sun's centre at -0.8333 deg (upper limb 16' plus 34'
@@ -40,6 +42,7 @@ horizon (78.2 N, sunset near midnight: about 0.7 deg per hour).
 """
 
 import datetime
+from zoneinfo import ZoneInfo
 
 import ephem
 
@@ -259,6 +262,49 @@ def lamp_periods():
             name, iso(r), iso(s), length, fmt_len(length), 14 * 3600 - length))
 
 
+def _local_day_length(o, zone, d):
+    """Seconds from the sunrise of the local date d in zone to the sunset
+    after it; 24 h on a date the Sun does not rise and is up at noon, 0 on
+    one it does not rise and is down, and on the one whose sunrise starts
+    the midnight Sun."""
+    tz = ZoneInfo(zone)
+    utc = datetime.timezone.utc
+    start = datetime.datetime(d.year, d.month, d.day, tzinfo=tz)
+    end = (start + datetime.timedelta(days=1)).astimezone(utc).replace(tzinfo=None)
+    start = start.astimezone(utc).replace(tzinfo=None)
+    o.date = ephem.Date(start)
+    try:
+        r = o.next_rising(SUN, use_center=True)
+    except (ephem.AlwaysUpError, ephem.NeverUpError):
+        r = None
+    if r is None or r.datetime() >= end:
+        o.date = ephem.Date(start + datetime.timedelta(hours=12))
+        SUN.compute(o)
+        return 86400.0 if SUN.alt > 0 else 0.0
+    o.date = r
+    try:
+        return (o.next_setting(SUN, use_center=True) - r) * 86400
+    except ephem.AlwaysUpError:  # the rise that starts the midnight Sun
+        return 86400.0
+
+
+def no_lamps_stretches():
+    print("# stretches of local dates whose natural day (sunrise to sunset) reaches a lighting target")
+    for name, lat, lon, zone, hours, within in (
+            ("48.2 N, 16.4 E", 48.2, 16.4, "Europe/Vienna", 16, "2027-06-20"),
+            ("69.65 N, 18.96 E", 69.65, 18.96, "Europe/Oslo", 16, "2027-05-20"),
+            ("71.29 N, 156.8 W", 71.29, -156.8, "America/Anchorage", 12, "2027-05-20")):
+        o = observer(lat, lon, -0.8333)
+        day = datetime.timedelta(days=1)
+        first = last = datetime.date.fromisoformat(within)
+        while _local_day_length(o, zone, first - day) >= hours * 3600:
+            first -= day
+        while _local_day_length(o, zone, last + day) >= hours * 3600:
+            last += day
+        print("%s (%s): a day of %d h or more from %s to %s; lamps needed again on %s" % (
+            name, zone, hours, first, last, last + day))
+
+
 if __name__ == "__main__":
     print("PyEphem %s (libastro)" % ephem.__version__)
     day_across_midnight()
@@ -269,3 +315,4 @@ if __name__ == "__main__":
     plan_ends_past_midnight()
     plan_evening_starts()
     lamp_periods()
+    no_lamps_stretches()

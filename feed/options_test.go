@@ -150,9 +150,10 @@ func TestKeepClearsDropped(t *testing.T) {
 // (the year chart draws them): dark windows of 45 min or more on Fridays
 // and Saturdays, lamps in January and February, and the seasons as all-day
 // entries 12 h late on the one date listed, the day after the March
-// equinox in Colorado (in the afternoon of 20 March 2027 there: 12 h later
-// is the 21st; the date comes from the start with the offset, as the
-// entry's).
+// equinox in Colorado (at 14:24 MDT on 20 March 2027 there, 20:24 UTC:
+// ERFA, testdata/reference/crosscheck-seasons-erfa.csv, JD 2461485.3513 TT
+// less ΔT; 12 h later is the 21st; the date comes from the start with the
+// offset, as the entry's).
 func TestEventsForKeepsAsEntries(t *testing.T) {
 	s := site(t, "hill", 39.08, -105.42, "America/Denver")
 	first, last := date("2027-01-01"), date("2027-06-30")

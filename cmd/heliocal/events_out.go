@@ -55,9 +55,10 @@ func newEventSink(format string, w io.Writer, s *config.Site, from, to time.Time
 	return nil
 }
 
-// jsonSink writes {"events": […], "notes": […], "site": {…}} indented by
-// two spaces, byte for byte as encoding/json's Encoder with SetIndent("",
-// "  ") writes the same document. Events are ordered by start across
+// jsonSink writes {"events": […], "notes": […], "site": {…}}: each event
+// and each note on a line of its own, four spaces in, byte for byte as
+// encoding/json's Marshal writes it, the rest indented by two spaces, the
+// site as MarshalIndent writes it. Events are ordered by start across
 // chunks: the events of a chunk that start after its last date are held
 // back and merged with the next chunk's. Notes follow the events in the
 // document, so they are kept (already encoded, about 100 bytes each) until
@@ -165,7 +166,7 @@ type jsonKind struct {
 	// whose name makes the text too long
 	tmpl [3]*jsonTemplate
 	// long[d]: the text in direction d does not fit a template (a kind
-	// name far over 40 bytes), so that it is not made again for each event
+	// name over 80 bytes), so that it is not made again for each event
 	long [3]bool
 }
 
@@ -181,8 +182,8 @@ type jsonTemplate struct {
 	start, date int // where the start's and the date's digits begin
 }
 
-// jsonTemplateSize bounds a template's text: a kind name of up to 40
-// bytes fits.
+// jsonTemplateSize bounds a template's text: a kind name of up to 80
+// bytes fits (the rest of the longest template, a sunset's, is 109).
 const jsonTemplateSize = 192
 
 // template makes the text of the plain kind k's events in direction d
@@ -301,8 +302,8 @@ func (j *jsonSink) write(c feed.Chunk, out *chunkOut) error {
 // eventAt returns where the i-th event of text (events one after the
 // other, each after a comma) begins, or len(text) when it has i events.
 // Each object begins with a comma, a line break and four spaces, and no
-// text within an object does: its fields and what they hold are indented
-// further, and a string has no line break.
+// text within an object does: an object is one line, and a string has no
+// line break.
 func eventAt(text []byte, i int) int {
 	at := 0
 	for ; i > 0; i-- {

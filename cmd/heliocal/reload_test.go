@@ -58,15 +58,7 @@ func TestServeReloadAppliesBaseURLAndSchedule(t *testing.T) {
 		b, _ := io.ReadAll(resp.Body)
 		return resp.StatusCode, resp.Header, string(b)
 	}
-	waitFor := func(what string, ok func() bool) {
-		t.Helper()
-		for deadline := time.Now().Add(60 * time.Second); !ok(); time.Sleep(50 * time.Millisecond) {
-			if time.Now().After(deadline) {
-				t.Fatalf("timed out waiting for %s\n%s", what, logs.String())
-			}
-		}
-	}
-	waitFor("the first build", func() bool { code, _, _ := fetch("/healthz"); return code == http.StatusOK })
+	waitFor(t, logs, "the first build", func() bool { code, _, _ := fetch("/healthz"); return code == http.StatusOK })
 	_, h, body := fetch("/feeds/north-sun.ics")
 	if !strings.Contains(body, "SOURCE;VALUE=URI:https://a.example.org/cal/north-sun.ics\r\n") || h.Get("Cache-Control") != "public, max-age=86400" {
 		t.Fatalf("before the reload: Cache-Control %q, feed:\n%.600s", h.Get("Cache-Control"), body)
@@ -79,7 +71,7 @@ func TestServeReloadAppliesBaseURLAndSchedule(t *testing.T) {
 	if err := syscall.Kill(os.Getpid(), syscall.SIGHUP); err != nil {
 		t.Fatal(err)
 	}
-	waitFor("the reload", func() bool { return strings.Contains(logs.String(), "configuration reloaded") })
+	waitFor(t, logs, "the reload", func() bool { return strings.Contains(logs.String(), "configuration reloaded") })
 	_, h, body = fetch("/feeds/north-sun.ics")
 	if !strings.Contains(body, "SOURCE;VALUE=URI:https://b.example.org/north-sun.ics\r\n") || !strings.Contains(body, "REFRESH-INTERVAL;VALUE=DURATION:PT2H\r\n") {
 		t.Errorf("after the reload the feed has the old URL or interval:\n%.800s", body)
@@ -214,22 +206,14 @@ func TestServeRefusesOversizeFeed(t *testing.T) {
 		b, _ := io.ReadAll(resp.Body)
 		return resp.StatusCode, string(b)
 	}
-	waitFor := func(what string, ok func() bool) {
-		t.Helper()
-		for deadline := time.Now().Add(60 * time.Second); !ok(); time.Sleep(50 * time.Millisecond) {
-			if time.Now().After(deadline) {
-				t.Fatalf("timed out waiting for %s\n%s", what, logs.String())
-			}
-		}
-	}
-	waitFor("the first build", func() bool { code, _ := health(); return code == http.StatusOK })
+	waitFor(t, logs, "the first build", func() bool { code, _ := health(); return code == http.StatusOK })
 	if err := os.WriteFile(path, []byte(refusing+reloadSite), 0o644); err != nil {
 		t.Fatal(err)
 	}
 	if err := syscall.Kill(os.Getpid(), syscall.SIGHUP); err != nil {
 		t.Fatal(err)
 	}
-	waitFor("the refused reload", func() bool { _, b := health(); return strings.Contains(b, "reload failed") })
+	waitFor(t, logs, "the refused reload", func() bool { _, b := health(); return strings.Contains(b, "reload failed") })
 	code, body := health()
 	if code != http.StatusOK || !strings.Contains(body, refused) || !strings.Contains(body, over) {
 		t.Errorf("/healthz after the refused reload: %d %s", code, body)

@@ -19,6 +19,17 @@ import (
 	goical "github.com/emersion/go-ical"
 )
 
+// waitFor polls ok every 50 ms until it holds, and fails t after 60 s,
+// naming what it waited for, with the server's log so far.
+func waitFor(t *testing.T, logs *lockedBuffer, what string, ok func() bool) {
+	t.Helper()
+	for deadline := time.Now().Add(60 * time.Second); !ok(); time.Sleep(50 * time.Millisecond) {
+		if time.Now().After(deadline) {
+			t.Fatalf("timed out waiting for %s\n%s", what, logs.String())
+		}
+	}
+}
+
 // freePort returns a loopback address that was free a moment ago.
 func freePort(t *testing.T) string {
 	t.Helper()
@@ -159,14 +170,6 @@ func TestServeReloadRefusesInvalidConfig(t *testing.T) {
 		done <- run(ctx, []string{"serve", "--config", path, "--listen", addr, "--access-log=false"}, io.Discard, logs, noEnv)
 	}()
 	base := "http://" + addr
-	waitFor := func(what string, ok func() bool) {
-		t.Helper()
-		for deadline := time.Now().Add(60 * time.Second); !ok(); time.Sleep(50 * time.Millisecond) {
-			if time.Now().After(deadline) {
-				t.Fatalf("timed out waiting for %s\n%s", what, logs.String())
-			}
-		}
-	}
 	fetch := func(p string) (int, string) {
 		resp, err := http.Get(base + p)
 		if err != nil {
@@ -176,7 +179,7 @@ func TestServeReloadRefusesInvalidConfig(t *testing.T) {
 		b, _ := io.ReadAll(resp.Body)
 		return resp.StatusCode, string(b)
 	}
-	waitFor("the first build", func() bool { code, _ := fetch("/healthz"); return code == http.StatusOK })
+	waitFor(t, logs, "the first build", func() bool { code, _ := fetch("/healthz"); return code == http.StatusOK })
 	_, before := fetch("/feeds/fernhollow-sun.ics")
 
 	if err := os.WriteFile(path, []byte("sites:\n  - id: x\n    latitude: 95\n"), 0o644); err != nil {
@@ -185,7 +188,7 @@ func TestServeReloadRefusesInvalidConfig(t *testing.T) {
 	if err := syscall.Kill(os.Getpid(), syscall.SIGHUP); err != nil {
 		t.Fatal(err)
 	}
-	waitFor("the refused reload", func() bool { return strings.Contains(logs.String(), "reload refused") })
+	waitFor(t, logs, "the refused reload", func() bool { return strings.Contains(logs.String(), "reload refused") })
 	if !strings.Contains(logs.String(), "latitude") {
 		t.Errorf("the log does not name the bad field:\n%s", logs.String())
 	}

@@ -266,7 +266,7 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		switch {
 		case errors.As(err, &oe):
 			cf.Events, cf.Bytes, cf.Oversize = len(cal.Entries), oe.Bytes, true
-			r.Refused = append(r.Refused, publish.OversizeRefusal(f.ID, oe.Bytes, oe.Limit))
+			r.Refused = append(r.Refused, publish.OversizeRefusal(oe))
 		case err != nil:
 			return nil, nil, fmt.Errorf("feed %q: %w", f.ID, err)
 		case !cal.TrimmedTo.IsZero():

@@ -63,14 +63,20 @@ const (
 	OversizeFail = "fail" // stop with an *OversizeError
 )
 
-// OversizeError is a feed larger than the limit under OversizeFail.
+// OversizeError is a feed larger than the limit under OversizeFail, or,
+// with Trimmed, one still larger with no entry left under OversizeTrim
+// (its header and description alone are over the limit).
 type OversizeError struct {
 	Feed         string
 	Bytes, Limit int
+	Trimmed      bool
 }
 
 func (e *OversizeError) Error() string {
 	size, limit := FormatBytesOver(int64(e.Bytes), int64(e.Limit))
+	if e.Trimmed {
+		return fmt.Sprintf("%s with no entry left, over service.max_feed_bytes (%s): service.oversize: trim cannot shorten it enough; raise service.max_feed_bytes", size, limit)
+	}
 	return fmt.Sprintf("%s, over service.max_feed_bytes (%s): shorten days_back/days_ahead, split the kinds, or set service.oversize: trim", size, limit)
 }
 
@@ -84,7 +90,7 @@ func trimToFit(c *feed.Calendar, buf []byte, n, limit int, enc encodeFunc) ([]by
 	for len(data) > limit {
 		entries := len(c.Entries)
 		if entries == 0 {
-			return buf[:n], &OversizeError{Feed: c.ID, Bytes: len(data), Limit: limit}
+			return buf[:n], &OversizeError{Feed: c.ID, Bytes: len(data), Limit: limit, Trimmed: true}
 		}
 		// keep the share of entries that should fit (a little less: the
 		// header stays), at least one date fewer than now

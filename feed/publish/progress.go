@@ -163,11 +163,15 @@ func OversizeWarning(id string, bytes, limit int) string {
 	return fmt.Sprintf("feed %q is %s, over service.max_feed_bytes (%s): published as it is, but some web calendars drop events from subscriptions this large; shorten days_back/days_ahead, split the kinds into several feeds, or set service.oversize: trim", id, size, most)
 }
 
-// OversizeRefusal says that the feed id of the given size over the limit
-// service.max_feed_bytes is refused under service.oversize: fail: check's
-// words for what publish and serve do with it.
-func OversizeRefusal(id string, bytes, limit int) string {
-	size, most := FormatBytesOver(int64(bytes), int64(limit))
+// OversizeRefusal says that the feed of e is refused, under
+// service.oversize: fail or, still over the limit with no entry left, under
+// trim: check's words for what publish and serve do with it.
+func OversizeRefusal(e *OversizeError) string {
+	id := e.Feed
+	size, most := FormatBytesOver(int64(e.Bytes), int64(e.Limit))
+	if e.Trimmed {
+		return fmt.Sprintf("feed %q is %s with no entry left, over service.max_feed_bytes (%s): publish and serve refuse it (service.oversize: trim cannot shorten it enough); raise service.max_feed_bytes", id, size, most)
+	}
 	return fmt.Sprintf("feed %q is %s, over service.max_feed_bytes (%s): publish and serve refuse it (service.oversize: fail); shorten days_back/days_ahead, split the kinds, or set service.oversize: trim", id, size, most)
 }
 

@@ -124,6 +124,17 @@ func TestOversize(t *testing.T) {
 	if cal.Entries[0].Date.After(time.Date(2027, 1, 25, 0, 0, 0, 0, time.UTC)) {
 		t.Errorf("trim: the near end moved to %s", cal.Entries[0].Date.Format(time.DateOnly))
 	}
+	// a limit the calendar is over with no entry left: trim cannot help, and
+	// the refusal does not advise setting the trim already set
+	_, _, err = encodeFeed(t, cfg, f, &RenderOptions{MaxFeedBytes: 1000, Oversize: OversizeTrim})
+	if !errors.As(err, &oe) || !oe.Trimmed || oe.Feed != "plot-sun" || oe.Bytes <= 1000 {
+		t.Fatalf("trim to nothing: %v", err)
+	}
+	for _, msg := range []string{err.Error(), OversizeRefusal(oe)} {
+		if !strings.Contains(msg, "with no entry left, over service.max_feed_bytes (1 kB)") || !strings.Contains(msg, "raise service.max_feed_bytes") || strings.Contains(msg, "set service.oversize") || strings.Contains(msg, "oversize: fail") {
+			t.Errorf("trim to nothing: %q", msg)
+		}
+	}
 }
 
 // A size and the limit it is over are written in one unit with the decimals

@@ -160,7 +160,7 @@ func runCheck(ctx context.Context, g *globals, now time.Time, format string) err
 		}
 		return err
 	}
-	r, notes, err := checkConfig(ctx, cfg, src, now)
+	r, zoneLines, err := checkConfig(ctx, cfg, src, now)
 	if err != nil {
 		return err
 	}
@@ -173,7 +173,7 @@ func runCheck(ctx context.Context, g *globals, now time.Time, format string) err
 		}
 		return nil
 	}
-	if err := writeCheckText(g, r, notes); err != nil {
+	if err := writeCheckText(g, r, zoneLines); err != nil {
 		return err
 	}
 	if len(r.Refused) > 0 {
@@ -215,19 +215,18 @@ func zoneNote(s *config.Site, when time.Time) string {
 // kind that gives only a note, lighting limits that do not limit, dates
 // before a feed's window), the notes (dates after a feed's window, a feed
 // shortened under trim) and the feeds refused under fail; it returns apart
-// the notes for sites whose zone comes from their coordinates.
+// the lines that note which sites take their zone from their coordinates.
 func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now time.Time) (*checkReport, []string, error) {
 	srcs, opts, err := build(cfg, now, newLayout(cfg.Service.BaseURL))
 	if err != nil {
 		return nil, nil, err
 	}
 	r := &checkReport{Configuration: src.String(), Valid: true, Sites: []checkSite{}, Feeds: []checkFeed{}, Warnings: []string{}, Notes: []string{}}
-	var notes []string
 	for _, s := range cfg.Sites {
 		r.Sites = append(r.Sites, checkSite{ID: s.ID, sitePlace: placeOf(&s), SkylineFile: s.HorizonFile,
 			TimeZone: s.TimeZone.Name(), TimeZoneInferred: s.ZoneInferred})
 	}
-	notes = zoneNotes(cfg, now)
+	zoneLines := zoneNotes(cfg, now)
 	limit := cfg.Service.MaxFeedBytes
 	for i, s := range srcs {
 		if err := ctx.Err(); err != nil {
@@ -281,15 +280,15 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		}
 		r.Feeds = append(r.Feeds, cf)
 	}
-	return r, notes, nil
+	return r, zoneLines, nil
 }
 
 // writeCheckText prints the report as two tables on standard output, the
-// zone notes after the sites' and the report's notes after the feeds', and
+// zoneLines after the sites' and the report's notes after the feeds', and
 // the warnings on standard error. Standard output is written in one piece,
 // so that an output that cannot take it (a full disk, a closed pipe) is an
 // error.
-func writeCheckText(g *globals, r *checkReport, notes []string) error {
+func writeCheckText(g *globals, r *checkReport, zoneLines []string) error {
 	w := new(bytes.Buffer)
 	fmt.Fprintf(w, "configuration: %s (valid)\n\n", r.Configuration)
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
@@ -302,7 +301,7 @@ func writeCheckText(g *globals, r *checkReport, notes []string) error {
 		fmt.Fprintf(tw, "%s\t%s\t%.4f\t%.4f\t%g m\t%s\t%s\n", s.ID, s.Name, s.Latitude, s.Longitude, s.Elevation, horizonText(s), zone)
 	}
 	tw.Flush()
-	for _, line := range notes {
+	for _, line := range zoneLines {
 		fmt.Fprintln(w, line)
 	}
 	fmt.Fprintln(w)

@@ -30,6 +30,16 @@ func problemsOf(t *testing.T, err error) []FieldError {
 	return verr.Problems
 }
 
+// problemLines is each problem of err, a *ValidationError, as printed.
+func problemLines(t *testing.T, err error) []string {
+	t.Helper()
+	var lines []string
+	for _, p := range problemsOf(t, err) {
+		lines = append(lines, p.Error())
+	}
+	return lines
+}
+
 // TestSkylineFromCSV reads a skyline from a CSV file (header and comments
 // skipped), sorted by azimuth.
 func TestSkylineFromCSV(t *testing.T) {

@@ -64,10 +64,7 @@ func TestDatesWrittenOneWay(t *testing.T) {
 					t.Errorf("%s, %s %s: accepted", c.value, place, name)
 					continue
 				}
-				var got []string
-				for _, p := range problemsOf(t, err) {
-					got = append(got, p.Error())
-				}
+				got := problemLines(t, err)
 				if want := path + ": " + c.problem; len(got) != 1 || got[0] != want {
 					t.Errorf("%s, %s %s: problems\n%s\nwant\n%s", c.value, place, name, strings.Join(got, "\n"), want)
 				}
@@ -109,10 +106,7 @@ func TestDatesWrittenOneWayEveryProblem(t *testing.T) {
 		if err == nil {
 			t.Fatalf("%s: accepted", format)
 		}
-		var got []string
-		for _, p := range problemsOf(t, err) {
-			got = append(got, p.Error())
-		}
+		got := problemLines(t, err)
 		want := []string{
 			"feeds[0].kinds[0].dates[0]: 2027-6-12: not a date (write it 2027-06-12)",
 			"feeds[0].kinds[0].dates[2]: 2027-06-1: not a date (write it 2027-06-01)",

@@ -17,10 +17,7 @@ func TestDatesProblems(t *testing.T) {
 	if err == nil {
 		t.Fatal("no error")
 	}
-	var got []string
-	for _, p := range problemsOf(t, err) {
-		got = append(got, p.Error())
-	}
+	got := problemLines(t, err)
 	want := []string{
 		`feeds[0].kinds[0].dates[1]: 2027-02-30: not a date (February 2027 has 28 days)`,
 		`feeds[0].kinds[0].dates[2]: 2027-06-12: listed twice (also feeds[0].kinds[0].dates[0]) (remove one)`,

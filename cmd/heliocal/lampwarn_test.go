@@ -13,6 +13,7 @@ import (
 	"time"
 
 	"heliocal/config"
+	"heliocal/feed/serve"
 )
 
 // checkWarnings is what heliocal check warns about the configuration text
@@ -190,13 +191,7 @@ func TestPublishLampLimitWarning(t *testing.T) {
 // and at a refresh only a limit it has not warned about at the build
 // before: the same limits again log nothing.
 func TestServeLampLimitWarning(t *testing.T) {
-	c, err := config.Parse(strings.NewReader(havanaLamps), "yaml")
-	if err != nil {
-		t.Fatal(err)
-	}
-	var logged lockedBuffer
-	b := serveBuild(c, "", slog.New(slog.NewJSONHandler(&logged, nil)))
-	warned := func() []string { return warnings(t, &logged) }
+	b, warned := serveWarnings(t, havanaLamps)
 	if _, err := b(context.Background()); err != nil {
 		t.Fatal(err)
 	}
@@ -232,6 +227,18 @@ func TestDemoHasNoLampLimitWarning(t *testing.T) {
 			}
 		}
 	}
+}
+
+// serveWarnings is serve's build function for the YAML configuration cfg,
+// and what it has logged at WARN so far, in order.
+func serveWarnings(t *testing.T, cfg string) (serve.BuildFunc, func() []string) {
+	t.Helper()
+	c, err := config.Parse(strings.NewReader(cfg), "yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	logged := &lockedBuffer{}
+	return serveBuild(c, "", slog.New(slog.NewJSONHandler(logged, nil))), func() []string { return warnings(t, logged) }
 }
 
 // warnings returns the messages of the WARN lines a JSON slog handler has

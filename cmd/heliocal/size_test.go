@@ -3,13 +3,10 @@ package main
 import (
 	"context"
 	"encoding/json"
-	"log/slog"
 	"path/filepath"
 	"regexp"
 	"strings"
 	"testing"
-
-	"heliocal/config"
 )
 
 // meadowOversize is a feed of a few hundred kB over a max_feed_bytes of 20 kB.
@@ -65,13 +62,7 @@ func TestOversizeWarningOneForm(t *testing.T) {
 // default) and logs the warning of check and publish, at its first build
 // and not again at a refresh that finds the same feed over.
 func TestServeOversizeWarning(t *testing.T) {
-	c, err := config.Parse(strings.NewReader(meadowOversize), "yaml")
-	if err != nil {
-		t.Fatal(err)
-	}
-	var logged lockedBuffer
-	b := serveBuild(c, "", slog.New(slog.NewJSONHandler(&logged, nil)))
-	warned := func() []string { return warnings(t, &logged) }
+	b, warned := serveWarnings(t, meadowOversize)
 	for range 2 {
 		bundle, err := b(context.Background())
 		if err != nil {
@@ -92,19 +83,14 @@ func TestServeOversizeWarning(t *testing.T) {
 // "20.0 kB").
 func TestServeTrimNote(t *testing.T) {
 	yaml := strings.Replace(meadowOversize, "max_feed_bytes: 20000\n", "max_feed_bytes: 20000\n  oversize: trim\n", 1)
-	c, err := config.Parse(strings.NewReader(yaml), "yaml")
-	if err != nil {
-		t.Fatal(err)
-	}
-	var logged lockedBuffer
-	b := serveBuild(c, "", slog.New(slog.NewJSONHandler(&logged, nil)))
+	b, warned := serveWarnings(t, yaml)
 	for range 2 {
 		if _, err := b(context.Background()); err != nil {
 			t.Fatal(err)
 		}
 	}
 	note := regexp.MustCompile(`^meadow\.ics shortened to \d{4}-\d\d-\d\d to stay under 20 kB \(now 1\d(\.\d)? kB, \d+ events\)$`)
-	got := warnings(t, &logged)
+	got := warned()
 	if len(got) != 1 || !note.MatchString(got[0]) {
 		t.Fatalf("two builds logged %q, want once %s", got, note)
 	}

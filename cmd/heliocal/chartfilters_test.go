@@ -66,21 +66,32 @@ func TestChartDrawsWhatFeedsKeep(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
+			drawn := map[string]int{}
 			for i := range cfg.Sites {
 				site := &cfg.Sites[i]
 				c, err := chartsFor(cfg, tc.now, nil)(context.Background(), feed.SiteOf(site))
 				if err != nil {
 					t.Fatal(err)
 				}
-				checkChartAgainstFeeds(t, path, cfg, site, c)
+				for what, n := range checkChartAgainstFeeds(t, path, cfg, site, c) {
+					drawn[what] += n
+				}
+			}
+			// charts and feeds that agree on drawing nothing check nothing
+			for _, what := range []string{"lamp periods", "dark windows", "marks", "photoperiod crossings"} {
+				if drawn[what] == 0 {
+					t.Errorf("no %s drawn: the test checks none", what)
+				}
 			}
 		})
 	}
 }
 
 // checkChartAgainstFeeds compares the chart c of site with the entries of
-// its feeds listed by events --feed over the chart's dates.
-func checkChartAgainstFeeds(t *testing.T, path string, cfg *config.Config, site *config.Site, c *publish.SiteChart) {
+// its feeds listed by events --feed over the chart's dates, and returns how
+// many of each it compared: lamp periods, dark windows, marks and
+// photoperiod crossings.
+func checkChartAgainstFeeds(t *testing.T, path string, cfg *config.Config, site *config.Site, c *publish.SiteChart) map[string]int {
 	t.Helper()
 	loc := site.TimeZone.Location
 	first, last := c.Days[0].Date, c.Days[len(c.Days)-1].Date
@@ -150,6 +161,7 @@ func checkChartAgainstFeeds(t *testing.T, path string, cfg *config.Config, site 
 	}
 
 	// the photoperiod crossings, as publish marks them
+	crossed := 0
 	for _, lv := range c.Levels {
 		var drawn []time.Time
 		for i := 1; i < len(c.Days); i++ {
@@ -160,11 +172,13 @@ func checkChartAgainstFeeds(t *testing.T, path string, cfg *config.Config, site 
 		if w := crossings[lv.Length]; fmt.Sprint(drawn) != fmt.Sprint(w) {
 			t.Errorf("%s: %v crossings drawn on %v, the feeds have them on %v", site.ID, lv.Length, drawn, w)
 		}
+		crossed += len(drawn)
 		delete(crossings, lv.Length)
 	}
 	for l, w := range crossings {
 		t.Errorf("%s: no level for the %v crossings on %v", site.ID, l, w)
 	}
+	return map[string]int{"lamp periods": len(c.Lamps), "dark windows": len(c.Dark), "marks": len(c.Marks), "photoperiod crossings": crossed}
 }
 
 // sameSpans checks that the pieces drawn are those of the feeds (each drawn

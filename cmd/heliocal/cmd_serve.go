@@ -74,8 +74,7 @@ func reloadServe(ctx context.Context, g *globals, log *slog.Logger, srv *serve.S
 		return nil
 	}
 	if err := srv.Reload(ctx, serveBuild(next, baseOf(next), log)); err != nil {
-		log.Error("reload failed; still serving the old feeds", "err", err)
-		return nil
+		return nil // srv logged it and shows it on /healthz
 	}
 	if next.Service.Refresh != old.Service.Refresh || next.Service.RefreshZone.Name() != old.Service.RefreshZone.Name() {
 		if err := srv.Reschedule(next.Service.Refresh, next.Service.RefreshZone.Location); err != nil {

@@ -213,10 +213,14 @@ func TestServeRefusesOversizeFeed(t *testing.T) {
 	if err := syscall.Kill(os.Getpid(), syscall.SIGHUP); err != nil {
 		t.Fatal(err)
 	}
-	waitFor(t, logs, "the refused reload", func() bool { _, b := health(); return strings.Contains(b, "reload failed") })
+	waitFor(t, logs, "the refused reload", func() bool { _, b := health(); return strings.Contains(b, "failed to build") })
 	code, body := health()
-	if code != http.StatusOK || !strings.Contains(body, refused) || !strings.Contains(body, over) {
+	if code != http.StatusOK || !strings.Contains(body, refused) || !strings.Contains(body, over) || strings.Count(body, "fail") != 1 {
 		t.Errorf("/healthz after the refused reload: %d %s", code, body)
+	}
+	// one line of error for one reload, saying what happened
+	if n := strings.Count(logs.String(), "level=ERROR"); n != 1 || !strings.Contains(logs.String(), "reload failed: the new configuration's feeds did not build") {
+		t.Errorf("%d error lines for the reload:\n%s", n, logs.String())
 	}
 	if resp, err := http.Get("http://" + addr + "/feeds/north-sun.ics"); err != nil || resp.StatusCode != http.StatusOK {
 		t.Errorf("the old feed is not served: %v", err)

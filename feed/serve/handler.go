@@ -315,7 +315,11 @@ func (s *Server) health() (health, int) {
 	}
 	failed := s.lastErr != nil
 	if s.reloadErr != nil {
-		hb.Reasons = append(hb.Reasons, fmt.Sprintf("configuration reload refused at %s, still serving the previous configuration: %s",
+		what := "configuration reload refused at %s"
+		if s.reloadBuild {
+			what = "configuration reload at %s failed to build"
+		}
+		hb.Reasons = append(hb.Reasons, fmt.Sprintf(what+", still serving the previous configuration: %s",
 			s.reloadAt.UTC().Format(time.RFC3339), oneLine(s.reloadErr.Error())))
 	}
 	if period, err := schedule.Interval(s.sched.Spec(), s.sched.Location(), now); err == nil && !s.lastSuccess.IsZero() {

@@ -72,7 +72,8 @@ func TestHealthDegraded(t *testing.T) {
 	if err := s.Refresh(t.Context()); err != nil {
 		t.Fatal(err)
 	}
-	check("after a failed reload", "degraded", "reload failed: ical: encoder failed")
+	check("after a failed reload", "degraded",
+		"configuration reload at 2026-12-02T03:15:00Z failed to build, still serving the previous configuration: ical: encoder failed")
 
 	if err := s.Reload(t.Context(), b.build); err != nil {
 		t.Fatal(err)

@@ -193,9 +193,12 @@ type Server struct {
 	lastSuccess time.Time
 	lastErr     error
 	// reloadErr is why the last configuration reload did not take effect
-	// (nil once a reload has succeeded); reloadAt is when it was refused.
-	reloadErr error
-	reloadAt  time.Time
+	// (nil once a reload has succeeded); reloadAt is when it was refused;
+	// reloadBuild says that the new configuration was valid but its feeds
+	// did not build.
+	reloadErr   error
+	reloadAt    time.Time
+	reloadBuild bool
 
 	runMu   sync.Mutex
 	running bool
@@ -361,7 +364,7 @@ func (s *Server) Reload(ctx context.Context, build BuildFunc) error {
 	}
 	err := s.refresh(ctx, triggerReload, build)
 	if err != nil {
-		s.RefuseReload(fmt.Errorf("reload failed: %w", err))
+		s.refuseReload(err, true)
 		return err
 	}
 	s.healthMu.Lock()
@@ -374,10 +377,14 @@ func (s *Server) Reload(ctx context.Context, build BuildFunc) error {
 // build (the new file is invalid): it is counted in
 // heliocal_reloads_refused_total, and /healthz reports "degraded" with err
 // as the reason until a reload succeeds. The served feeds are not touched.
-func (s *Server) RefuseReload(err error) {
+func (s *Server) RefuseReload(err error) { s.refuseReload(err, false) }
+
+// refuseReload records a reload that did not take effect: refused before
+// any build, or, with build, one whose feeds did not build.
+func (s *Server) refuseReload(err error, build bool) {
 	s.metrics.reloadsRefused.Inc()
 	s.healthMu.Lock()
-	s.reloadErr, s.reloadAt = err, s.now()
+	s.reloadErr, s.reloadAt, s.reloadBuild = err, s.now(), build
 	s.healthMu.Unlock()
 }
 
@@ -408,8 +415,11 @@ func (s *Server) refresh(ctx context.Context, trigger string, next BuildFunc) (e
 		s.metrics.lastOK.Set(0)
 		if trigger != triggerSchedule { // the scheduler logs its own runs
 			msg := "refresh failed; serving the previous feeds"
-			if s.snap.Load() == nil { // the first build: there are none
+			switch {
+			case s.snap.Load() == nil: // the first build: there are none
 				msg = "refresh failed; no feeds to serve yet"
+			case trigger == triggerReload:
+				msg = "reload failed: the new configuration's feeds did not build; still serving the previous feeds"
 			}
 			s.log.Error(msg, "trigger", trigger, "err", err, "duration", d)
 		}

@@ -927,3 +927,29 @@ func TestLampNoteWithin(t *testing.T) {
 		t.Errorf("a sunrise: error %v, want one naming the kind", err)
 	}
 }
+
+// TestLightingLimitRepeatedByTheClocks checks a lamp limit that the clocks
+// show twice: in Europe/Berlin they go back from 03:00 CEST to 02:00 CET
+// at 01:00 UT on Sunday 31 October 2027 (IANA tz database, Rule EU 1981
+// max - Oct lastSun 1:00u), so latest_off 02:30 is 00:30 UT (CEST) and
+// again 01:30 UT (CET); the lamps go off at the first, 02:30:00 CEST, as
+// RFC 5545 §3.3.5 reads an ambiguous local time ("the first occurrence").
+// The target (21 h) is far from any natural day at 52.5° N, so the
+// evening period is clipped whatever the sunset.
+func TestLightingLimitRepeatedByTheClocks(t *testing.T) {
+	s := site(t, "berlin-room", 52.52, 13.40, "Europe/Berlin")
+	sk := sky(t, "2027-01-01", "2027-12-31")
+	spec := lightingSpec(t, "lighting:21h", func(ks *config.KindSpec) { ks.LatestOff = "02:30" })
+	es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date("2027-10-30"), date("2027-10-30"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(es) != 1 || !es[0].Facts.Short {
+		t.Fatalf("%d entries, want one clipped period", len(es))
+	}
+	e := es[0]
+	if at := time.Date(2027, 10, 31, 0, 30, 0, 0, time.UTC); !e.End.Equal(at) || !strings.Contains(e.Description, ", off at 02:30:00 CEST +1 day") ||
+		strings.Contains(e.Description, "moved") {
+		t.Errorf("%s–%s %q\nwant the lamps off at %s, 02:30:00 CEST", e.Start, e.End, e.Description, at)
+	}
+}

@@ -1215,11 +1215,14 @@ func (sky *Sky) moonPhases() ([]astro.Phase, error) {
 // taken as that long after the last instant before the change, as clocks
 // that are set forward show it (00:30 on a night that jumps from 00:00 to
 // 01:00 is 01:30); Go's time.Date may instead give the previous evening.
+// A clock time the clocks show twice, when they go back, is the first of
+// the two, the earlier instant (RFC 5545 §3.3.5: "the first occurrence");
+// Go's time.Date gives either, by zone.
 func clockOn(d time.Time, clock time.Duration, loc *time.Location) time.Time {
 	h, m := int(clock/time.Hour), int(clock%time.Hour/time.Minute)
 	t := time.Date(d.Year(), d.Month(), d.Day(), h, m, 0, 0, loc)
 	if lt := t.In(loc); lt.Hour() == h && lt.Minute() == m && lt.Day() == d.Day() {
-		return t
+		return firstReading(t)
 	}
 	wall := time.Date(d.Year(), d.Month(), d.Day(), h, m, 0, 0, time.UTC)
 	best := t
@@ -1231,4 +1234,26 @@ func clockOn(d time.Time, clock time.Duration, loc *time.Location) time.Time {
 		}
 	}
 	return best
+}
+
+// firstReading is the first instant at which the local clock reads what it
+// reads at t: t itself, or, when the clocks went back to read it again
+// (t in the zone period after the change), the same reading an offset's
+// difference earlier, before the change.
+func firstReading(t time.Time) time.Time {
+	zs, _ := t.ZoneBounds()
+	if zs.IsZero() {
+		return t
+	}
+	_, off := t.Zone()
+	_, before := zs.Add(-time.Second).Zone()
+	if before <= off {
+		return t
+	}
+	if c := t.Add(-time.Duration(before-off) * time.Second); c.Before(zs) {
+		if _, o := c.Zone(); o == before {
+			return c
+		}
+	}
+	return t
 }

@@ -881,3 +881,57 @@ func TestPlanDateOnlyAnchor(t *testing.T) {
 		t.Errorf("no entries %v", want)
 	}
 }
+
+// TestPlanClockRepeatedTakesTheFirst: a plan's clock time that the clocks
+// show twice, when they go back, is the first of the two, the earlier
+// instant still on summer time (RFC 5545 §3.3.5, "the first occurrence").
+// The changes, from the tz database:
+//   - Europe/Berlin, Rule EU 1981 max - Oct lastSun 1:00u 0 -: 03:00 CEST
+//     (UT + 2 h) back to 02:00 CET (UT + 1 h) at 01:00 UT on Sunday 31
+//     October 2027, so 02:30 is 00:30 UT (CEST) and again 01:30 UT (CET);
+//   - America/New_York, Rule US 2007 max - Nov Sun>=1 2:00 0 S: 02:00 EDT
+//     (UT − 4 h) back to 01:00 EST (UT − 5 h) on Sunday 7 November 2027, so
+//     01:30 is 05:30 UT and again 06:30 UT;
+//   - Asia/Beirut, Rule Lebanon 1992 max - Oct lastSun 0:00 0 -: 00:00 EEST
+//     (UT + 3 h) on Sunday 31 October 2027 back to 23:00 EET (UT + 2 h) on
+//     Saturday 30 October, so 23:40 on the 30th is 20:40 UT and again
+//     21:40 UT;
+//   - America/Santiago, Rule Chile 2023 max - Apr Sun>=2 3:00u 0 -: 00:00
+//     -03 on Sunday 4 April 2027 back to 23:00 -04 on Saturday 3 April, so
+//     23:30 on the 3rd is 02:30 UT on the 4th and again 03:30 UT.
+func TestPlanClockRepeatedTakesTheFirst(t *testing.T) {
+	for _, c := range []struct {
+		zone          string
+		lat, lon      float64
+		date, clock   string
+		first, second string // UTC, from the tz database's rules above
+	}{
+		{"Europe/Berlin", 52.52, 13.40, "2027-10-31", "02:30", "2027-10-31T00:30:00Z", "2027-10-31T01:30:00Z"},
+		{"America/New_York", 40.71, -74.01, "2027-11-07", "01:30", "2027-11-07T05:30:00Z", "2027-11-07T06:30:00Z"},
+		{"Asia/Beirut", 33.89, 35.50, "2027-10-30", "23:40", "2027-10-30T20:40:00Z", "2027-10-30T21:40:00Z"},
+		{"America/Santiago", -33.45, -70.67, "2027-04-03", "23:30", "2027-04-04T02:30:00Z", "2027-04-04T03:30:00Z"},
+	} {
+		t.Run(c.zone, func(t *testing.T) {
+			s := site(t, "s", c.lat, c.lon, c.zone)
+			loc := s.TimeZone.Location
+			first, _ := time.Parse(time.RFC3339, c.first)
+			second, _ := time.Parse(time.RFC3339, c.second)
+			// the zone data reads the clock time at both instants
+			for _, u := range []time.Time{first, second} {
+				if l := u.In(loc); l.Format(time.DateOnly) != c.date || l.Format("15:04") != c.clock {
+					t.Fatalf("zone data: %s is %s local, want %s %s", u, l, c.date, c.clock)
+				}
+			}
+			es := planEntries(t, s, c.date, c.date, config.Plan{Title: "Check", Date: "every day", Start: c.clock})
+			if len(es) != 1 || es[0].AllDay {
+				t.Fatalf("%+v, want one timed entry", es)
+			}
+			if !es[0].Start.Equal(first) {
+				t.Errorf("starts %s, want the first %s at %s (not %s)", es[0].Start.UTC(), c.clock, first, second)
+			}
+			if strings.Contains(es[0].Description, "moved") {
+				t.Errorf("description %q says a time the clock shows moved", es[0].Description)
+			}
+		})
+	}
+}

@@ -30,8 +30,15 @@ func parseDate(s string) (time.Time, *RuleError) {
 // for a two-digit year ("27-06-12": a feed's window is around today, so
 // the year is 20YY), the days of the month for a day it does not have
 // ("2027-02-30": February 2027 has 28 days), and the form for the rest.
+// A date with a time of day ("2027-06-12T10:00:00Z", as YAML's and TOML's
+// timestamps are written) gets "write it 2027-06-12".
 // The configuration's dates and the command line's give the same hint.
 func DateHint(s string) string {
+	if n := len(time.DateOnly); len(s) > n && (isDateTime(s) || s[n] == ' ') {
+		if d, err := time.Parse(time.DateOnly, s[:n]); err == nil {
+			return "write it " + d.Format(time.DateOnly)
+		}
+	}
 	parts := strings.FieldsFunc(s, func(r rune) bool { return r == '-' || r == '/' || r == '.' })
 	if len(parts) != 3 || len(parts[0])+len(parts[1])+len(parts[2])+2 != len(s) {
 		return dateForm
@@ -87,6 +94,14 @@ func isDateLike(s string) bool {
 		}
 	}
 	return groups == 3 && digits > 0
+}
+
+// isDateTime reports whether s is a date followed by a time of day, as
+// YAML and TOML write their timestamps ("2027-06-12T10:00:00Z", lower case
+// too).
+func isDateTime(s string) bool {
+	n := len(time.DateOnly)
+	return len(s) > n && (s[n] == 'T' || s[n] == 't') && isDateLike(s[:n])
 }
 
 // monthDay reads a date of the year written as two groups of one or two

@@ -100,16 +100,61 @@ func TestDateFilterDates(t *testing.T) {
 // TestTOMLTimeWhereTextBelongs: an unquoted TOML time or date and time
 // where text belongs (a plan's start, a dates list) is named in the file's
 // terms, not by the decoder's Go type (TOML v1.0.0: local time, local
-// date-time).
+// date-time), and where a date belongs the hint is the date to write, not
+// quotes, which would give "not a date".
 func TestTOMLTimeWhereTextBelongs(t *testing.T) {
 	const head = "[[sites]]\nid = \"a\"\nlatitude = 47.5\nlongitude = 9.7\ntimezone = \"Europe/Zurich\"\n[[feeds]]\nid = \"f\"\nsite = \"a\"\n"
 	for doc, want := range map[string]string{
 		head + "[[feeds.plans]]\ntitle = \"x\"\ndate = \"every day\"\nstart = 20:00:00\n": "feeds[0].plans[0].start: 20:00:00: must be text, not a time of day (put the value in quotes)",
-		head + "[[feeds.kinds]]\nkind = \"sunset\"\ndates = [2027-06-12T10:00:00]\n":      "feeds[0].kinds[0].dates[0]: 2027-06-12T10:00:00: must be text, not a date and time (put the value in quotes)",
+		head + "[[feeds.kinds]]\nkind = \"sunset\"\ndates = [2027-06-12T10:00:00]\n":      "feeds[0].kinds[0].dates[0]: 2027-06-12T10:00:00: must be a date, not a date and time (write it 2027-06-12)",
 	} {
 		_, err := Parse(strings.NewReader(doc), "toml")
 		if err == nil || !strings.Contains(err.Error(), want) {
 			t.Errorf("%q: %v\nwant it to contain %q", doc, err, want)
+		}
+	}
+}
+
+// TestDateOfAnotherType: a value of another type where a date belongs (a
+// kinds entry's dates, a plan's date) gets the date to write as its hint,
+// not quotes around the value, which would give "not a date":
+//   - TOML v1.0.0 reads 2027-06-12T10:00:00 unquoted as a local date-time
+//     and 2027-06-12T10:00:00Z as an offset date-time;
+//   - JSON (RFC 8259) reads 20270612 as a number: the date it spells as
+//     YYYYMMDD is written back in quotes, as JSON needs them;
+//   - YAML 1.1's timestamp type reads 2027-06-12T10:00:00 unquoted as a
+//     date and time.
+func TestDateOfAnotherType(t *testing.T) {
+	const toml = "[[sites]]\nid = \"a\"\nlatitude = 47.5\nlongitude = 9.7\ntimezone = \"Europe/Zurich\"\n[[feeds]]\nid = \"f\"\nsite = \"a\"\n"
+	const json = `{"sites":[{"id":"a","latitude":47.5,"longitude":9.7,"timezone":"Europe/Zurich"}],"feeds":[{"id":"f","site":"a",`
+	const yaml = "sites: [{id: a, latitude: 47.5, longitude: 9.7, timezone: Europe/Zurich}]\nfeeds: [{id: f, site: a, "
+	for _, c := range []struct{ format, doc, want string }{
+		{"toml", toml + "[[feeds.plans]]\ntitle = \"x\"\nstart = \"20:00\"\ndate = 2027-06-12T10:00:00\n",
+			"feeds[0].plans[0].date: 2027-06-12T10:00:00: must be a date or a date rule, not a date and time (write it 2027-06-12)"},
+		{"toml", toml + "[[feeds.kinds]]\nkind = \"sunset\"\ndates = [2027-06-12T10:00:00Z]\n",
+			"feeds[0].kinds[0].dates[0]: 2027-06-12T10:00:00Z: not a date (write it 2027-06-12)"},
+		{"toml", toml + "[[feeds.kinds]]\nkind = \"sunset\"\ndates = [10:00:00]\n",
+			`feeds[0].kinds[0].dates[0]: 10:00:00: must be a date, not a time of day (write YYYY-MM-DD in quotes, e.g. "2027-06-12")`},
+		{"json", json + `"kinds":[{"kind":"sunset","dates":[20270612]}]}]}`,
+			`feeds[0].kinds[0].dates[0]: 20270612: must be a date, not a number (write it "2027-06-12")`},
+		{"json", json + `"plans":[{"title":"x","start":"20:00","date":20270612}]}]}`,
+			`feeds[0].plans[0].date: 20270612: must be a date or a date rule, not a number (write it "2027-06-12")`},
+		// 2027-02-30 is no date (February 2027 has 28 days): the form
+		{"json", json + `"kinds":[{"kind":"sunset","dates":[20270230]}]}]}`,
+			`feeds[0].kinds[0].dates[0]: 20270230: must be a date, not a number (write YYYY-MM-DD in quotes, e.g. "2027-06-12")`},
+		{"json", json + `"kinds":[{"kind":"sunset","dates":[true]}]}]}`,
+			`feeds[0].kinds[0].dates[0]: true: must be a date, not true/false (write YYYY-MM-DD in quotes, e.g. "2027-06-12")`},
+		{"yaml", yaml + "kinds: [{kind: sunset, dates: [2027-06-12T10:00:00]}]}]\n",
+			"feeds[0].kinds[0].dates[0]: 2027-06-12T10:00:00: not a date (write it 2027-06-12)"},
+		{"yaml", yaml + "plans: [{title: x, start: \"20:00\", date: 2027-06-12T10:00:00}]}]\n",
+			"feeds[0].plans[0].date: 2027-06-12T10:00:00: not a date (write it 2027-06-12)"},
+		// elsewhere a number where text belongs still gets quotes
+		{"json", json + `"kinds":[{"kind":"sunset","label":20270612}]}]}`,
+			`feeds[0].kinds[0].label: 20270612: must be text, not a number (put the value in quotes)`},
+	} {
+		_, err := Parse(strings.NewReader(c.doc), c.format)
+		if err == nil || !strings.Contains(err.Error(), c.want) {
+			t.Errorf("%s %q: %v\nwant it to contain %q", c.format, c.doc, err, c.want)
 		}
 	}
 }

@@ -744,6 +744,9 @@ func problemFor(path string, err error) []FieldError {
 	case errors.As(err, &ve):
 		return []FieldError{{Path: shown, Value: ve.Value, Msg: ve.Msg, Hint: ve.Hint}}
 	case errors.As(err, &ue):
+		if what := dateKey(path); what != "" && ue.Expected.Type().Kind() == reflect.String {
+			return []FieldError{{Path: shown, Value: quotedValue(ue.Value), Msg: "must be " + what + ", not " + describeValue(ue.Value), Hint: dateValueHint(ue.Value)}}
+		}
 		return []FieldError{{Path: shown, Value: quotedValue(ue.Value), Msg: "must be " + describeType(ue.Expected.Type()) + ", not " + describeValue(ue.Value), Hint: typeHint(ue.Expected.Type(), ue.Value)}}
 	case errors.As(err, &pe):
 		return []FieldError{{Path: shown, Value: quotedValue(pe.Value), Msg: "must be " + describeType(pe.Expected.Type())}}
@@ -922,6 +925,43 @@ func typeHint(t reflect.Type, v any) string {
 		}
 	}
 	return ""
+}
+
+// dateKey says what the key at path holds when it is a date: "a date" for
+// an entry of a kinds entry's dates list, "a date or a date rule" for a
+// plan's date; "" for any other key.
+func dateKey(path string) string {
+	key := path[strings.LastIndexByte(path, '.')+1:]
+	if i := strings.IndexByte(key, '['); i >= 0 {
+		key = key[:i]
+	}
+	switch {
+	case key == "dates" && strings.Contains(path, ".kinds["):
+		return "a date"
+	case key == "date" && strings.Contains(path, ".plans["):
+		return "a date or a date rule"
+	}
+	return ""
+}
+
+// dateValueHint says how to write, as a date, a value of another type where
+// a date belongs: the date of a date and time ("write it 2027-06-12" for
+// TOML's 2027-06-12T10:00:00), the date a number spells as YYYYMMDD, in
+// quotes, as JSON needs them (`write it "2027-06-12"` for 20270612), and
+// the form for the rest.
+func dateValueHint(v any) string {
+	switch x := v.(type) {
+	case toml.LocalDateTime:
+		return "write it " + x.LocalDate.String()
+	case time.Time:
+		return "write it " + x.Format(time.DateOnly)
+	case int, int64, uint64, float64:
+		n := showValue(x)
+		if d, err := time.Parse("20060102", n); err == nil && len(n) == 8 {
+			return `write it "` + d.Format(time.DateOnly) + `"`
+		}
+	}
+	return `write YYYY-MM-DD in quotes, e.g. "2027-06-12"`
 }
 
 // kindWord names a Go kind in the file's terms.

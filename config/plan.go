@@ -250,7 +250,9 @@ func parseDateRule(f []string) (DateRule, *RuleError) {
 				Hint: `e.g. "every 04-25"; "every 02-29" is in leap years only`}
 		}
 		return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is not a weekday, \"day\" or a date MM-DD", f[1]), Hint: `e.g. "every friday" or "every 04-25"`}
-	case len(f) == 1 && isDateLike(f[0]):
+	case len(f) == 1 && (isDateLike(f[0]) || isDateTime(f[0])):
+		// a date with a time of day (YAML's unquoted 2027-06-12T10:00:00)
+		// is refused as a date, with the date to write
 		d, err := ParseListedDate(f[0])
 		if err != nil {
 			return DateRule{}, err.(*RuleError)

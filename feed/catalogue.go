@@ -136,11 +136,12 @@ func (sky *Sky) Calendar(ctx context.Context, s *config.Site, f *config.Feed, fi
 	if opts.FeedURL != nil {
 		cal.URL = opts.FeedURL(f.ID)
 	}
-	entries, text, gaps, err := sky.feedEntries(ctx, s, f, first, last)
+	entries, text, found, err := sky.feedEntries(ctx, s, f, first, last)
 	if err != nil {
 		return nil, fmt.Errorf("feed %q: %w", f.ID, err)
 	}
-	cal.Entries, cal.text = entries, text
+	cal.Entries, cal.text, cal.NotCrossed = entries, text, found.notCrossed
+	gaps := found.gaps
 	noteLampLimitGaps(s, f, cal, gaps)
 	return cal, nil
 }
@@ -248,6 +249,13 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 		for i := range evs {
 			w.event(&spec, &evs[i])
 		}
+		for _, n := range col.notes[m0:] {
+			if n.Kind.Name == "photoperiod" && !n.Last.IsZero() {
+				title, _ := describeNote(w.site, n)
+				col.notCrossed = append(col.notCrossed, KindNote{Kind: n.Kind.String(), Title: title})
+			}
+		}
+		moveStretchNotes(col.notes[m0:], spec.Filter(), col.last)
 		for _, n := range col.notes[m0:] {
 			w.note(n)
 		}
@@ -1306,8 +1314,10 @@ func entryAllDay(spec *config.KindSpec, k *config.Kind) bool {
 // entries made of them, in place, and returns what is kept: an event is
 // kept when its entry is, dated and measured as entryWriter.event makes it
 // (an all-day entry on the local date in loc of its start with spec's
-// offset). Notes are all-day entries of their date.
-func keepEvents(evs []Event, notes []Note, spec config.KindSpec, loc *time.Location) ([]Event, []Note) {
+// offset). Notes are all-day entries of their date, a stretch's note
+// moved first to the first date of its stretch the filters keep
+// (moveStretchNotes; last is the last date computed).
+func keepEvents(evs []Event, notes []Note, spec config.KindSpec, loc *time.Location, last time.Time) ([]Event, []Note) {
 	f, minLen := spec.Filter(), spec.MinDuration.D()
 	if f.IsZero() && minLen <= 0 {
 		return evs, notes
@@ -1322,6 +1332,56 @@ func keepEvents(evs []Event, notes []Note, spec config.KindSpec, loc *time.Locat
 		}
 		return !kept(f, minLen, e.Date, e.Start, e.End, false)
 	})
+	moveStretchNotes(notes, f, last)
 	notes = slices.DeleteFunc(notes, func(n Note) bool { return !kept(f, minLen, n.Date, n.Date, time.Time{}, true) })
 	return evs, notes
+}
+
+// moveStretchNotes moves each note of notes that stands for a stretch of
+// dates and whose date the filter f leaves out to the first date of the
+// stretch that f keeps, in place: the note of a lighting kind that no lamps
+// are needed, from its date until the date before its Until (through last,
+// the last date computed, without one), and that of a photoperiod
+// threshold no date crosses, from its date through its Last. Their words
+// hold on any date of the stretch ("No lamps needed until 19 Jan", "Day
+// length never reaches 15 h here"), and a date of the stretch the filter
+// keeps would otherwise have no entry of the kind and no note either. A
+// note of a stretch f keeps no date of stays where it is, for f to leave
+// out.
+func moveStretchNotes(notes []Note, f config.DateFilter, last time.Time) {
+	if f.IsZero() {
+		return
+	}
+	for i := range notes {
+		n := &notes[i]
+		if f.Allows(n.Date) {
+			continue
+		}
+		end, ok := stretchEnd(n, last)
+		if !ok {
+			continue
+		}
+		for d := n.Date.AddDate(0, 0, 1); !d.After(end); d = d.AddDate(0, 0, 1) {
+			if f.Allows(d) {
+				n.from, n.Date = n.start(), d
+				break
+			}
+		}
+	}
+}
+
+// stretchEnd is the last date of the stretch n is the note of, and whether
+// n is the note of a stretch (see moveStretchNotes) rather than of its own
+// date; last is the last date computed.
+func stretchEnd(n *Note, last time.Time) (time.Time, bool) {
+	switch {
+	case n.Kind.Name == "photoperiod" && !n.Last.IsZero():
+		return n.Last, true
+	case n.Kind.Name == config.KindLighting && n.State == astro.AlwaysAbove && n.Lamp == 0:
+		if n.Until.IsZero() {
+			return last, true
+		}
+		return n.Until.AddDate(0, 0, -1), true
+	}
+	return time.Time{}, false
 }

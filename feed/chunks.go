@@ -105,8 +105,16 @@ func PreparedChunks[T any](ctx context.Context, s *Sky, p Place, specs []config.
 		}
 		if chunked {
 			notes = slices.DeleteFunc(notes, func(n Note) bool { return n.Kind.Name == "photoperiod" })
-			if i == 0 {
-				notes = append(whole, notes...)
+			// each in the chunk of its date: the first, unless a filter
+			// moved it (moveStretchNotes)
+			var own []Note
+			for _, n := range whole {
+				if !n.Date.Before(d) && !n.Date.After(end) {
+					own = append(own, n)
+				}
+			}
+			if len(own) > 0 {
+				notes = append(own, notes...)
 			}
 			if notes, err = s.joinLampNotes(ctx, p, lamps, d, end, first, last, notes); err != nil {
 				return Chunk{}, err
@@ -205,10 +213,17 @@ func kindsNamed(specs []config.KindSpec, name string) []config.KindSpec {
 // chunk's last date gets the first date after it that needs lamps (looked
 // up chunk by chunk; none when the stretch outlasts the range). Each date's
 // needs do not depend on the dates computed with it.
+//
+// With a filter (months, weekdays, dates) a stretch's note is on the first
+// date of the stretch the filter keeps (moveStretchNotes): a chunk's note
+// of a stretch that began before it is then dropped only when the filter
+// keeps a date of the stretch before the chunk, whose note is there; the
+// dates that need lamps are those of the kind without its filter.
 func (s *Sky) joinLampNotes(ctx context.Context, p Place, lamps []config.KindSpec, d, end, first, last time.Time, notes []Note) ([]Note, error) {
-	// noLamps returns the "no lamps needed" note of sp dated on from, if
-	// any, computing from..to.
+	// noLamps returns the "no lamps needed" note of sp, without its
+	// filter, dated on from, if any, computing from..to.
 	noLamps := func(sp config.KindSpec, from, to time.Time) (Note, bool, error) {
+		sp.Weekdays, sp.Months, sp.Dates = nil, nil, nil
 		_, ns, err := s.eventsFor(ctx, p, []config.KindSpec{sp}, from, to, &buffers{})
 		if err != nil {
 			return Note{}, false, err
@@ -224,10 +239,28 @@ func (s *Sky) joinLampNotes(ctx context.Context, p Place, lamps []config.KindSpe
 		mine := func(n *Note) bool { return n.Kind == sp.Kind && n.State == astro.AlwaysAbove }
 		if d.After(first) {
 			before := d.AddDate(0, 0, -1)
-			if _, ok, err := noLamps(sp, before, before); err != nil {
+			_, ok, err := noLamps(sp, before, before)
+			if err != nil {
 				return nil, err
-			} else if ok {
-				notes = slices.DeleteFunc(notes, func(n Note) bool { return mine(&n) && n.Date.Equal(d) })
+			}
+			if f := sp.Filter(); ok && !f.IsZero() {
+				// the stretch runs on from before d: its note is in an
+				// earlier chunk if the filter keeps one of its dates
+				// there, the latest date kept before d among them
+				ok = false
+				for b := before; !b.Before(first); b = b.AddDate(0, 0, -1) {
+					if f.Allows(b) {
+						n, in, err := noLamps(sp, b, before)
+						if err != nil {
+							return nil, err
+						}
+						ok = in && n.Until.IsZero()
+						break
+					}
+				}
+			}
+			if ok {
+				notes = slices.DeleteFunc(notes, func(n Note) bool { return mine(&n) && n.start().Equal(d) })
 			}
 		}
 		for i := range notes {

@@ -127,9 +127,20 @@ type Calendar struct {
 	// some of its dates, as Sky.Calendar found them (lampLimitGaps), which
 	// its description tells of.
 	LampLimitGaps []LampLimitGap
+	// NotCrossed are the notes of the feed's photoperiod thresholds that no
+	// date of the window crosses, as they read on the window's first date,
+	// whether or not the kinds entries' months, weekdays and dates keep a
+	// date for them.
+	NotCrossed []KindNote
 
 	// text is the memory of the entries' descriptions and UIDs, when the
 	// catalogue made them as substrings of one buffer: Release hands it
 	// back with the entries.
 	text []byte
+}
+
+// KindNote is a note of a kind as a feed words it: the kind, as in the
+// configuration, and the note's title.
+type KindNote struct {
+	Kind, Title string
 }

@@ -1070,9 +1070,9 @@ func describeLightingNote(s *siteInfo, n Note, last time.Time) (string, string) 
 	if n.Until.IsZero() {
 		title := fmt.Sprintf("No lamps needed through %s: the natural day is ≥ %s", last.Format("2 Jan"), target)
 		return title, fmt.Sprintf("%s, from %s to the end of this calendar (%s).", title,
-			n.Date.Format("Monday 2 January 2006"), last.Format("2 January 2006"))
+			n.start().Format("Monday 2 January 2006"), last.Format("2 January 2006"))
 	}
 	title := fmt.Sprintf("No lamps needed until %s: the natural day is ≥ %s", n.Until.Format("2 Jan"), target)
 	return title, fmt.Sprintf("%s, from %s; lamps are needed again from %s.", title,
-		n.Date.Format("Monday 2 January 2006"), n.Until.Format("Monday 2 January 2006"))
+		n.start().Format("Monday 2 January 2006"), n.Until.Format("Monday 2 January 2006"))
 }

@@ -80,7 +80,7 @@ type planAnchor struct {
 // With a lighting limit that its kinds' entries alone can be checked
 // against (ownLimitGaps), it returns too the limits that do nothing on
 // some dates, found as the entries are written; nil otherwise.
-func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed, first, last time.Time) ([]Entry, []byte, *limitGaps, error) {
+func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed, first, last time.Time) ([]Entry, []byte, found, error) {
 	col := &collector{ctx: ctx, sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
 	if HasLampLimit(f) && ownLimitGaps(f) {
 		col.gaps = &limitGaps{}
@@ -99,32 +99,40 @@ func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed,
 	if len(f.Plans) == 0 {
 		es, text, err := sky.entries(col, s, f.ID, f.Kinds, 0, true)
 		if err != nil {
-			return nil, nil, nil, err
+			return nil, nil, found{}, err
 		}
-		return sortEntries(es), text, col.gaps, nil
+		return sortEntries(es), text, found{gaps: col.gaps, notCrossed: col.notCrossed}, nil
 	}
 	parsed, kinds, err := parsePlans(f.Plans)
 	if err != nil {
-		return nil, nil, nil, err
+		return nil, nil, found{}, err
 	}
 	days := daysBetween(col.first, col.last) + 1
 	col.keyDates = dateTexts.get(days)[:days]
 	defer dateTexts.put(col.keyDates)
 	pd, err := sky.allPlanDates(col, parsed)
 	if err != nil {
-		return nil, nil, nil, err
+		return nil, nil, found{}, err
 	}
 	// the kinds' crossings in one pass; the plans take theirs from it, or
 	// find them on their own dates only (planEntries), and append their
 	// entries to the kinds' (room made for them)
 	es, text, err := sky.entries(col, s, f.ID, f.Kinds, pd.total, true)
 	if err != nil {
-		return nil, nil, nil, err
+		return nil, nil, found{}, err
 	}
 	if es, text, err = sky.planEntries(col, s, f.ID, parsed, kinds, pd, es, text); err != nil {
-		return nil, nil, nil, err
+		return nil, nil, found{}, err
 	}
-	return sortEntries(es), text, col.gaps, nil
+	return sortEntries(es), text, found{gaps: col.gaps, notCrossed: col.notCrossed}, nil
+}
+
+// found is what feedEntries finds beside the entries: the lighting limits
+// that do nothing on some dates (nil when not looked for), the notes of the
+// photoperiod thresholds no date crosses.
+type found struct {
+	gaps       *limitGaps
+	notCrossed []KindNote
 }
 
 // limitGaps are the lighting limits of a feed that do nothing on some of

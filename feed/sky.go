@@ -163,6 +163,18 @@ type Note struct {
 	// (state AlwaysAbove) of the last date after a night without one, that
 	// evening's dusk likewise; zero otherwise.
 	Dusk time.Time
+	// from is, for a note of a stretch of dates moved to the first date of
+	// the stretch its kinds entry's filter keeps (moveStretchNotes), the
+	// stretch's first date; zero for a note on its own date.
+	from time.Time
+}
+
+// start is the first date of the stretch (or the date) n is the note of.
+func (n *Note) start() time.Time {
+	if n.from.IsZero() {
+		return n.Date
+	}
+	return n.from
 }
 
 // Place is where events are computed: an observer and the zone whose local
@@ -753,7 +765,7 @@ func (s *Sky) computeEvents(ctx context.Context, p Place, specs []config.KindSpe
 		}
 		// what the kind's entries keep, as the catalogue's keep
 		c.noteUnderMinimum(k, n0)
-		evs, ns := keepEvents(c.events[n0:], c.notes[m0:], k, p.Location)
+		evs, ns := keepEvents(c.events[n0:], c.notes[m0:], k, p.Location, last)
 		c.events, c.notes = c.events[:n0+len(evs)], c.notes[:m0+len(ns)]
 	}
 	runs = append(runs, int32(len(c.events)))
@@ -803,6 +815,10 @@ type collector struct {
 	// scratch, when set, is where the working slices by date come from
 	// (times, durations, flags): a chunk's buffers
 	scratch *buffers
+	// notCrossed receives the notes of the photoperiod thresholds that no
+	// date crosses, whatever dates their kinds entries' filters keep
+	// (Calendar.NotCrossed).
+	notCrossed []KindNote
 	// gaps, when set, receives the lighting limits that do nothing on
 	// some dates, each lighting kind's found from its own entries as they
 	// are written (appendLimitGaps)

@@ -1360,6 +1360,7 @@ func describeNote(s *siteInfo, n Note) (string, string) {
 // March 2027 (longest …)" over a shorter window.
 func NotReachedText(n Note) string {
 	target := Amount(n.Kind.DayLength)
+	from := n.start() // the window's first date, where a filter moved the note from
 	extreme := "longest"
 	verb, span := "never reaches", "never reaches"
 	if n.State == astro.AlwaysAbove {
@@ -1369,10 +1370,10 @@ func NotReachedText(n Note) string {
 	}
 	when := fmt.Sprintf("%s %s here", verb, target)
 	switch {
-	case n.Last.Equal(n.Date):
-		when = fmt.Sprintf("%s %s on %s", span, target, n.Date.Format("2 January 2006"))
-	case n.Last.Sub(n.Date) < 364*24*time.Hour:
-		when = fmt.Sprintf("%s %s from %s to %s", span, target, n.Date.Format("2 January"), n.Last.Format("2 January 2006"))
+	case n.Last.Equal(from):
+		when = fmt.Sprintf("%s %s on %s", span, target, from.Format("2 January 2006"))
+	case n.Last.Sub(from) < 364*24*time.Hour:
+		when = fmt.Sprintf("%s %s from %s to %s", span, target, from.Format("2 January"), n.Last.Format("2 January 2006"))
 	}
 	what := "Day length"
 	if n.DirectSun {

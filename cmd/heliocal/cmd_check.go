@@ -7,6 +7,7 @@ import (
 	"errors"
 	"fmt"
 	"path/filepath"
+	"slices"
 	"strconv"
 	"strings"
 	"text/tabwriter"
@@ -34,7 +35,8 @@ exits 1, as publish does. A lighting
 latest_off (earliest_on) that comes before the evening lamps start (after the morning lamps
 end) on some dates, and so does not limit them there, gets a warning too, as does a
 date a kinds entry lists or a plan is on before the feed's window: it is never published.
-One after the window gets a note: it is published once the window reaches it.
+One after the window gets a note: it is published once the window reaches it. A photoperiod threshold no date of the window
+crosses gets a warning whatever the dates its kinds entry keeps.
 
 --format json prints one JSON document on standard output for scripts: the sites and feeds
 of a valid configuration, or {"valid": false, "problems": [...]} with one object per
@@ -212,8 +214,8 @@ func zoneNote(s *config.Site, when time.Time) string {
 // checkConfig builds every feed of a valid configuration once, encoded as
 // publish encodes it under service.oversize, and reports the sites and
 // feeds, the warnings (a feed over max_feed_bytes under warn, a photoperiod
-// kind that gives only a note, lighting limits that do not limit, dates
-// before a feed's window), the notes (dates after a feed's window, a feed
+// kind that gives only a note, whatever its filters, lighting limits that
+// do not limit, dates before a feed's window), the notes (dates after a feed's window, a feed
 // shortened under trim) and the feeds refused under fail; it returns apart
 // the lines that note which sites take their zone from their coordinates.
 func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now time.Time) (*checkReport, []string, error) {
@@ -246,10 +248,14 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 				shown[j] += k.Offset.String()
 			}
 		}
-		for _, e := range cal.Entries {
-			if e.Facts.Note && strings.HasPrefix(e.Kind, "photoperiod:") {
-				r.Warnings = append(r.Warnings, fmt.Sprintf("feed %q: %s: %s; the feed shows only this note for it", f.ID, e.Kind, e.Title))
+		// as the note reads on the window's first date, whatever dates the
+		// kinds entry keeps
+		for _, n := range cal.NotCrossed {
+			shows := "the feed shows only this note for it"
+			if !slices.ContainsFunc(cal.Entries, func(e feed.Entry) bool { return e.Facts.Note && e.Kind == n.Kind }) {
+				shows = "the feed shows nothing for it: its months, weekdays or dates keep no date of the window"
 			}
+			r.Warnings = append(r.Warnings, fmt.Sprintf("feed %q: %s: %s; %s", f.ID, n.Kind, n.Title, shows))
 		}
 		for _, w := range lampLimitWarnings(&f, cal) {
 			r.Warnings = append(r.Warnings, w.text)

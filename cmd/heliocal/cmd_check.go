@@ -34,8 +34,9 @@ with publish's note and the shortened feed's size in the table; fail refuses it:
 exits 1, as publish does. A lighting
 latest_off (earliest_on) that comes before the evening lamps start (after the morning lamps
 end) on some dates, and so does not limit them there, gets a warning too, as does a
-date a kinds entry lists or a plan is on before the feed's window: it is never published.
-One after the window gets a note: it is published once the window reaches it. A photoperiod threshold no date of the window
+date a kinds entry lists or a plan is on before the feed's window, or that the entry's own
+months or weekdays leave out: it is never published. One after the window gets a note: it
+is published once the window reaches it. A photoperiod threshold no date of the window
 crosses gets a warning whatever the dates its kinds entry keeps.
 
 --format json prints one JSON document on standard output for scripts: the sites and feeds
@@ -215,7 +216,8 @@ func zoneNote(s *config.Site, when time.Time) string {
 // publish encodes it under service.oversize, and reports the sites and
 // feeds, the warnings (a feed over max_feed_bytes under warn, a photoperiod
 // kind that gives only a note, whatever its filters, lighting limits that
-// do not limit, dates before a feed's window), the notes (dates after a feed's window, a feed
+// do not limit, dates before a feed's window or left out by their entry's
+// months or weekdays), the notes (dates after a feed's window, a feed
 // shortened under trim) and the feeds refused under fail; it returns apart
 // the lines that note which sites take their zone from their coordinates.
 func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now time.Time) (*checkReport, []string, error) {
@@ -262,6 +264,7 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		}
 		warnings, later := datesOutsideWindow(&f, shown, cal)
 		r.Warnings = append(r.Warnings, warnings...)
+		r.Warnings = append(r.Warnings, datesFilteredOut(&f, shown)...)
 		r.Notes = append(r.Notes, later...)
 		// encoded as publish and serve encode it, under service.oversize:
 		// as it is, shortened, or refused

@@ -2,6 +2,7 @@ package main
 
 import (
 	"fmt"
+	"strings"
 	"time"
 
 	"heliocal/config"
@@ -63,4 +64,31 @@ func windowDates(cal *feed.Calendar) (first, last time.Time) {
 		return time.Date(t.Year(), t.Month(), t.Day(), 0, 0, 0, 0, time.UTC)
 	}
 	return date(cal.WindowStart), date(cal.WindowEnd).AddDate(0, 0, -1)
+}
+
+// datesFilteredOut words the dates that a kinds entry of feed f lists
+// (dates) and that the same entry's months or weekdays leave out, so that
+// it never keeps them: one line per date and filter. shown are the kinds
+// entries as check's table writes them.
+func datesFilteredOut(f *config.Feed, shown []string) []string {
+	var out []string
+	for i, k := range f.Kinds {
+		months := config.NewDateFilter(nil, k.Months, nil)
+		weekdays := config.NewDateFilter(k.Weekdays, nil, nil)
+		for _, s := range k.Dates {
+			d, err := config.ParseListedDate(s)
+			if err != nil {
+				continue
+			}
+			if !months.Allows(d) {
+				out = append(out, fmt.Sprintf("feed %q: %s: %s is in %s, not in its months (%s): it will never be published",
+					f.ID, shown[i], d.Format(time.DateOnly), d.Month(), strings.Join(k.Months, ", ")))
+			}
+			if !weekdays.Allows(d) {
+				out = append(out, fmt.Sprintf("feed %q: %s: %s is a %s, not in its weekdays (%s): it will never be published",
+					f.ID, shown[i], d.Format(time.DateOnly), d.Weekday(), strings.Join(k.Weekdays, ", ")))
+			}
+		}
+	}
+	return out
 }

@@ -107,3 +107,27 @@ feeds:
 		t.Errorf("JSON warnings and notes (%v):\n%s", err, js)
 	}
 }
+
+// check warns of a date a kinds entry lists that its own months or
+// weekdays leave out (12 June 2027 is a Saturday: timeanddate.com's 2027
+// calendar), naming the feed, the entry, the date and the filter.
+func TestDatesFilteredOutWarning(t *testing.T) {
+	r := checkReportOf(t, `sites:
+  - {id: venue, latitude: 47.5, longitude: 9.7, timezone: Europe/Zurich}
+feeds:
+  - id: weddings
+    site: venue
+    days_ahead: 400
+    kinds:
+      - {kind: sunset, dates: [2027-06-12, 2027-07-10], months: [jul]}
+      - {kind: golden-hour, offset: -10m, dates: [2027-06-12, 2027-06-13], weekdays: [sun]}
+      - {kind: blue-hour, dates: [2027-06-12], weekdays: [sat], months: [jun]}
+`, windowNow)
+	want := []string{
+		`feed "weddings": sunset: 2027-06-12 is in June, not in its months (jul): it will never be published`,
+		`feed "weddings": golden-hour-10m: 2027-06-12 is a Saturday, not in its weekdays (sun): it will never be published`,
+	}
+	if !slices.Equal(r.Warnings, want) {
+		t.Errorf("warnings:\n%s\nwant:\n%s", strings.Join(r.Warnings, "\n"), strings.Join(want, "\n"))
+	}
+}

@@ -290,9 +290,24 @@ func (s *Site) HorizonFromText(flag, v string) error {
 		return nil
 	}
 	if ps := s.resolveHorizon(flag, ""); len(ps) > 0 {
-		return ps[0]
+		return oneProblem(ps)
 	}
 	return nil
+}
+
+// oneProblem is the problems ps of one flag's value (each with that Path
+// and Value) as one error, as a command line or a query parameter reports
+// them: every problem's message, in order, joined by "; ", with the hint
+// they share (none when they differ).
+func oneProblem(ps []FieldError) FieldError {
+	p := ps[0]
+	for _, q := range ps[1:] {
+		p.Msg += "; " + q.Msg
+		if q.Hint != p.Hint {
+			p.Hint = ""
+		}
+	}
+	return p
 }
 
 // SkylineFromText reads skyline points written "azimuth:altitude" and
@@ -303,31 +318,38 @@ func (s *Site) HorizonFromText(flag, v string) error {
 // is a FieldError for flag and the value whose message names the point at
 // fault by its place and as written, "point 2 (90:60): altitude must be
 // within -5..45 degrees", and another point by its place, "(also point
-// 1; …)". The points come back sorted by azimuth, 360 written 0.
+// 1; …)"; several points at fault are all named, one after the other
+// (oneProblem). The points come back sorted by azimuth, 360 written 0.
 func SkylineFromText(flag, v string, round func(float64) float64) ([][2]float64, error) {
 	items := strings.Split(strings.TrimSpace(v), ",")
 	point := func(j int) string { return "point " + strconv.Itoa(j+1) }
 	written := func(j int) string { return strings.TrimSpace(items[j]) }
 	pts := make([][2]float64, len(items))
+	var bad []FieldError // points that are not two numbers: all of them
 	for j, item := range items {
 		p, ok := parsePoint(item)
 		if !ok {
-			return nil, FieldError{Path: flag, Value: v, Msg: point(j) + " (" + written(j) + "): must be azimuth:altitude, two numbers",
-				Hint: "e.g. " + flag + " 0:2,90:8,180:1,270:4, in degrees, the azimuth from the north through the east"}
+			bad = append(bad, FieldError{Path: flag, Value: v, Msg: point(j) + " (" + written(j) + "): must be azimuth:altitude, two numbers",
+				Hint: "e.g. " + flag + " 0:2,90:8,180:1,270:4, in degrees, the azimuth from the north through the east"})
+			continue
 		}
 		if round != nil {
 			p = [2]float64{round(p[0]), round(p[1])}
 		}
 		pts[j] = p
 	}
+	if len(bad) > 0 {
+		return nil, oneProblem(bad)
+	}
 	var s Site
 	if ps := s.setSkyline(flag, pts, point, written); len(ps) > 0 {
-		p := ps[0]
-		if p.Path != flag { // a point's problem
-			p.Msg = p.Path + " (" + p.Value + "): " + p.Msg
+		for i := range ps {
+			if ps[i].Path != flag { // a point's problem
+				ps[i].Msg = ps[i].Path + " (" + ps[i].Value + "): " + ps[i].Msg
+			}
+			ps[i].Path, ps[i].Value = flag, v
 		}
-		p.Path, p.Value = flag, v
-		return nil, p
+		return nil, oneProblem(ps)
 	}
 	return s.Skyline, nil
 }

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"os"
 	"strings"
 	"testing"
 )
@@ -19,6 +20,10 @@ func TestSkylineFromTextNamesPoints(t *testing.T) {
 		"90:8,0:2,360:1":  `point 3 (360:1): azimuth 0 given twice (also point 2; 0 and 360 are the same)`,
 		"10.01:2,10.04:3": `point 2 (10.04:3): azimuth 10 given twice (also point 1;`, // rounded first
 		"0:2,,90:8":       `point 2 (): must be azimuth:altitude, two numbers`,
+		// every point at fault, in the order written, as the configuration
+		// lists them; the hints differ, so none is given
+		"0:2,400:3,90:50": `horizon: "0:2,400:3,90:50": point 2 (400:3): azimuth must be within 0..360; point 3 (90:50): altitude must be within -5..45 degrees`,
+		"x:3,0:2,90:y":    `point 1 (x:3): must be azimuth:altitude, two numbers; point 3 (90:y): must be azimuth:altitude, two numbers (e.g. horizon 0:2`,
 	} {
 		_, err := SkylineFromText("horizon", v, tenth)
 		var fe FieldError
@@ -33,5 +38,20 @@ func TestSkylineFromTextNamesPoints(t *testing.T) {
 	pts, err = SkylineFromText("horizon", "270:4.04, 0:2,90:7.96", tenth)
 	if err != nil || fmt.Sprint(pts) != "[[0 2] [90 8] [270 4]]" {
 		t.Errorf("%v, %v", pts, err)
+	}
+}
+
+// A skyline file given on the command line has every bad line named in the
+// one error, as the configuration's horizon key lists them.
+func TestHorizonFromTextFileEveryLine(t *testing.T) {
+	name := t.TempDir() + "/hills.csv"
+	if err := os.WriteFile(name, []byte("0,2\n400,3\n90,50\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	var s Site
+	err := s.HorizonFromText("--horizon", name)
+	want := "line 2: [400, 3]: azimuth must be within 0..360; line 3: [90, 50]: altitude must be within -5..45 degrees"
+	if err == nil || !strings.Contains(err.Error(), want) {
+		t.Errorf("%v, want %q", err, want)
 	}
 }

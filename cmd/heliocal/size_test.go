@@ -152,3 +152,36 @@ func TestCheckOversizeModes(t *testing.T) {
 		})
 	}
 }
+
+// publish under oversize: fail names every feed it refuses, as check does,
+// not the first alone, exits 1 and writes nothing: a small feed between
+// two refused ones is not published either.
+func TestPublishNamesEveryRefusedFeed(t *testing.T) {
+	yaml := strings.Replace(meadowOversize, "max_feed_bytes: 20000\n", "max_feed_bytes: 20000\n  oversize: fail\n", 1) +
+		`  - id: meadow-noon
+    site: upper-meadow
+    kinds: [solar-noon]
+    days_back: 0
+    days_ahead: 7
+  - id: meadow-twilight
+    site: upper-meadow
+    kinds: [nautical-dawn, nautical-dusk, astronomical-dawn, astronomical-dusk]
+    days_back: 0
+    days_ahead: 200
+`
+	cfg := writeConfig(t, yaml)
+	out := filepath.Join(t.TempDir(), "public")
+	code, _, errOut := runCLI(t, "publish", "--config", cfg, "--out", out)
+	if code != exitFailure || !strings.Contains(errOut, "feed meadow:") || !strings.Contains(errOut, "feed meadow-twilight:") ||
+		strings.Contains(errOut, "feed meadow-noon") {
+		t.Errorf("exit %d, stderr %q; want %d naming meadow and meadow-twilight", code, errOut, exitFailure)
+	}
+	if files, _ := filepath.Glob(filepath.Join(out, "*")); len(files) != 0 {
+		t.Errorf("a refused publish wrote %v", files)
+	}
+	// check names the same two
+	code, _, errOut = runCLI(t, "check", "--config", cfg)
+	if code != exitFailure || !strings.Contains(errOut, `feed "meadow" is`) || !strings.Contains(errOut, `feed "meadow-twilight" is`) {
+		t.Errorf("check: exit %d, stderr %q", code, errOut)
+	}
+}

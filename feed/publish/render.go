@@ -5,6 +5,7 @@ import (
 	"crypto/sha256"
 	"encoding/hex"
 	"encoding/json"
+	"errors"
 	"fmt"
 	"net/url"
 	"runtime"
@@ -318,6 +319,10 @@ func renderAll(ctx context.Context, srcs []Source, opts *RenderOptions, work fun
 		}
 	}()
 	defer wg.Wait()
+	// feeds refused for their size: the rest are still rendered, so that
+	// the error names every one of them (as check does), but no longer
+	// emitted, as the publish fails
+	var refused []error
 	for i := range srcs {
 		var res result
 		select {
@@ -326,16 +331,23 @@ func renderAll(ctx context.Context, srcs []Source, opts *RenderOptions, work fun
 			return fmt.Errorf("publish: %w", ctx.Err())
 		}
 		if res.err != nil {
+			if errors.As(res.err, new(*OversizeError)) {
+				refused = append(refused, res.err)
+				<-slots
+				continue
+			}
 			cancel()
-			return res.err
+			return errors.Join(append(refused, res.err)...)
 		}
-		if err := emit(res.r); err != nil {
-			cancel()
-			return err
+		if len(refused) == 0 {
+			if err := emit(res.r); err != nil {
+				cancel()
+				return err
+			}
 		}
 		<-slots
 	}
-	return nil
+	return errors.Join(refused...)
 }
 
 // listing is what feeds.json and the index are made of.

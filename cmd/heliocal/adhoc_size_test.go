@@ -1,7 +1,6 @@
 package main
 
 import (
-	"io"
 	"net/http"
 	"os"
 	"regexp"
@@ -19,16 +18,8 @@ func TestAdhocLimitAsDocumented(t *testing.T) {
 	ts := builderServer(t)
 	get := func(query string) (int, []byte) {
 		t.Helper()
-		r, err := http.Get(ts.URL + "/at.ics?lat=47.80&lon=13.04&" + query)
-		if err != nil {
-			t.Fatal(err)
-		}
-		defer r.Body.Close()
-		b, err := io.ReadAll(r.Body)
-		if err != nil {
-			t.Fatal(err)
-		}
-		return r.StatusCode, b
+		code, body := status(t, ts.URL+"/at.ics?lat=47.80&lon=13.04&"+query)
+		return code, []byte(body)
 	}
 	// 400 days fitting, a year does too
 	var sizes []string // in MB, as docs/serving.md gives them

@@ -2,7 +2,6 @@ package main
 
 import (
 	"encoding/json"
-	"io"
 	"net/http"
 	"strings"
 	"testing"
@@ -49,16 +48,11 @@ func TestPreviewOpenSpan(t *testing.T) {
 // getOK returns the body of a GET of url, failing t unless it is 200 OK.
 func getOK(t *testing.T, url string) string {
 	t.Helper()
-	r, err := http.Get(url)
-	if err != nil {
-		t.Fatal(err)
+	code, body := status(t, url)
+	if code != http.StatusOK {
+		t.Fatalf("%s: status %d: %s", url, code, body)
 	}
-	defer r.Body.Close()
-	b, err := io.ReadAll(r.Body)
-	if err != nil || r.StatusCode != 200 {
-		t.Fatalf("%s: status %d, %v: %s", url, r.StatusCode, err, b)
-	}
-	return string(b)
+	return body
 }
 
 // An ad-hoc feed for a place without a name is titled by its coordinates as

@@ -256,13 +256,10 @@ func writeEntriesJSON(w io.Writer, s *config.Site, from, to time.Time, cal *feed
 	if len(cal.Entries) > 0 {
 		b = append(b, "\n  "...)
 	}
-	site, err := json.MarshalIndent(siteJSON(s, from, to), "  ", "  ")
+	b, err = appendSiteEnd(append(b, ']'), s, from, to)
 	if err != nil {
 		return err
 	}
-	b = append(b, "],\n  \"site\": "...)
-	b = append(b, site...)
-	b = append(b, "\n}\n"...)
 	_, err = w.Write(b)
 	return err
 }

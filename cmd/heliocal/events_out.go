@@ -589,6 +589,18 @@ var plainJSONKinds = map[string]bool{
 	"sun-altitude": true, "golden-hour": true, "blue-hour": true,
 }
 
+// appendSiteEnd appends the end of a listing's JSON document after its last
+// array: the site, one field per line, and the closing brace.
+func appendSiteEnd(b []byte, s *config.Site, from, to time.Time) ([]byte, error) {
+	site, err := json.MarshalIndent(siteJSON(s, from, to), "  ", "  ")
+	if err != nil {
+		return b, err
+	}
+	b = append(b, ",\n  \"site\": "...)
+	b = append(b, site...)
+	return append(b, "\n}\n"...), nil
+}
+
 func (j *jsonSink) close() error {
 	j.begin()
 	for h := range j.held.len() {
@@ -603,13 +615,10 @@ func (j *jsonSink) close() error {
 		b = append(b, j.notes...)
 		b = append(b, "\n  "...)
 	}
-	b = append(b, "],\n  \"site\": "...)
-	site, err := json.MarshalIndent(siteJSON(j.site, j.from, j.to), "  ", "  ")
+	b, err := appendSiteEnd(append(b, ']'), j.site, j.from, j.to)
 	if err != nil {
 		return err
 	}
-	b = append(b, site...)
-	b = append(b, "\n}\n"...)
 	j.writeBytes(b)
 	if j.err != nil {
 		return j.err

@@ -241,7 +241,7 @@ func chartKinds(cfg *config.Config, siteID string) ([]chartLevel, []config.KindS
 			if k.Name == config.KindLighting {
 				sp.Lamps, sp.Natural, sp.LatestOff, sp.EarliestOn = ks.Lamps, ks.Natural, ks.LatestOff, ks.EarliestOn
 			}
-			if sp.Filter().IsZero() {
+			if !filtered {
 				sp.Offset = 0 // it moves only the date a filter reads (an all-day entry's)
 			}
 			key := specKey{k.String(), sp.MaxIllumination, sp.MinDuration, sp.Offset, sp.AllDay, sp.Lamps, sp.Natural, sp.LatestOff, sp.EarliestOn,

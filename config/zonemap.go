@@ -4,7 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"slices"
 	"unicode/utf8"
 
 	"github.com/tidwall/geojson/geometry"
@@ -142,20 +141,6 @@ func (m *zonePolygons) name(lon, lat float64) string {
 		}
 	}
 	return ""
-}
-
-// names lists, sorted, every zone whose polygons hold the point: more than
-// one where polygons overlap (disputed land).
-func (m *zonePolygons) names(lon, lat float64) []string {
-	p := geometry.Point{X: lon, Y: lat}
-	var out []string
-	for i := range m.zones {
-		if m.zones[i].contains(p) {
-			out = append(out, m.zones[i].name)
-		}
-	}
-	slices.Sort(out)
-	return out
 }
 
 // zoneRings is one polygon of a zone as the file holds it: the outer ring

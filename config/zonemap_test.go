@@ -175,3 +175,17 @@ func TestZonePolygonsAnswerAsTzf(t *testing.T) {
 		t.Errorf("only %d points of the grid in a zone", answered)
 	}
 }
+
+// names lists, sorted, every zone whose polygons hold the point: more than
+// one where polygons overlap (disputed land).
+func (m *zonePolygons) names(lon, lat float64) []string {
+	p := geometry.Point{X: lon, Y: lat}
+	var out []string
+	for i := range m.zones {
+		if m.zones[i].contains(p) {
+			out = append(out, m.zones[i].name)
+		}
+	}
+	slices.Sort(out)
+	return out
+}

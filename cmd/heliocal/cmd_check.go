@@ -270,19 +270,20 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		// as it is, shortened, or refused
 		cf := checkFeed{ID: f.ID, Site: f.Site, Kinds: kinds, Plans: len(f.Plans), DaysBack: f.DaysBack, DaysAhead: f.DaysAhead, shown: shown}
 		data, err := publish.Encode(cal, &opts)
+		cf.Events = len(cal.Entries) // as trim left them
 		var oe *publish.OversizeError
 		switch {
 		case errors.As(err, &oe):
-			cf.Events, cf.Bytes, cf.Oversize = len(cal.Entries), oe.Bytes, true
+			cf.Bytes, cf.Oversize = oe.Bytes, true
 			r.Refused = append(r.Refused, publish.OversizeRefusal(oe))
 		case err != nil:
 			return nil, nil, fmt.Errorf("feed %q: %w", f.ID, err)
 		case !cal.TrimmedTo.IsZero():
-			cf.Events, cf.Bytes, cf.Oversize, cf.TrimmedTo = len(cal.Entries), len(data), true, cal.TrimmedTo.Format(time.DateOnly)
-			t := publish.Trimmed{Feed: publish.FeedInfo{ID: f.ID, File: f.ID + ".ics", Events: len(cal.Entries), Bytes: len(data)}, To: cal.TrimmedTo}
+			cf.Bytes, cf.Oversize, cf.TrimmedTo = len(data), true, cal.TrimmedTo.Format(time.DateOnly)
+			t := publish.Trimmed{Feed: publish.FeedInfo{ID: f.ID, File: f.ID + ".ics", Events: cf.Events, Bytes: cf.Bytes}, To: cal.TrimmedTo}
 			r.Notes = append(r.Notes, publish.TrimNote(t, limit))
 		default:
-			cf.Events, cf.Bytes, cf.Oversize = len(cal.Entries), len(data), limit > 0 && len(data) > limit
+			cf.Bytes, cf.Oversize = len(data), limit > 0 && len(data) > limit
 			if cf.Oversize {
 				r.Warnings = append(r.Warnings, publish.OversizeWarning(f.ID, len(data), limit))
 			}

@@ -274,10 +274,7 @@ func tomlValueAt(data []byte, row, col int) string {
 	if col > len(line) || line[col-1] < '0' || line[col-1] > '9' {
 		return ""
 	}
-	value := line[col-1:]
-	if i := strings.IndexAny(value, " \t,]}#"); i >= 0 {
-		value = value[:i]
-	}
+	value := string(valueFrom([]byte(line), col))
 	key, _, ok := strings.Cut(line[:col-1], "=")
 	if key = strings.TrimSpace(key); !ok || key == "" || strings.ContainsAny(key, "[{\"'") {
 		return value + ": "
@@ -331,6 +328,17 @@ func quoteTOMLDates(data, decoded []byte) (out []byte, ok bool) {
 	return nil, false
 }
 
+// valueFrom is the unquoted TOML value that starts at column col (1-based,
+// in bytes, within line): up to the space, comma, bracket, brace or comment
+// that ends it.
+func valueFrom(line []byte, col int) []byte {
+	value := line[col-1:]
+	if i := bytes.IndexAny(value, " \t\r,]}#"); i >= 0 {
+		value = value[:i]
+	}
+	return value
+}
+
 // quoteAt puts in quotes the value written as a date that starts at line
 // row, column col (1-based, in bytes) of data; false when no such value
 // starts there.
@@ -350,10 +358,7 @@ func quoteAt(data []byte, row, col int) ([]byte, bool) {
 	if col < 1 || col > len(line) {
 		return nil, false
 	}
-	value := line[col-1:]
-	if i := bytes.IndexAny(value, " \t\r,]}#"); i >= 0 {
-		value = value[:i]
-	}
+	value := valueFrom(line, col)
 	if !isDateLike(string(value)) {
 		return nil, false
 	}

@@ -1304,16 +1304,12 @@ func (c *collector) twilightEvents(k config.Kind, th *threshold, dir astro.Direc
 				return err
 			}
 		}
-		if lo < end && (!evening || !dusk.IsZero()) {
+		if lo < end && !evening || !dusk.IsZero() {
 			// crossed the other way only: the event passed to a
-			// neighbouring date (noteSilent's note); a dusk's note says
-			// when this evening's comes, after midnight
-			c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.Crosses, Family: "no-event:" + k.String(), Dusk: dusk})
-			continue
-		}
-		if !dusk.IsZero() {
-			// no crossing on the date: this evening's dusk comes after
-			// midnight, the first after nights without one
+			// neighbouring date (noteSilent's note); or, for a dusk,
+			// this evening's comes after midnight (crossed the other
+			// way, or the first after nights without one), which the
+			// note says
 			c.notes = append(c.notes, Note{Kind: k, Date: d, State: astro.Crosses, Family: "no-event:" + k.String(), Dusk: dusk})
 			continue
 		}

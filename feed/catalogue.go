@@ -141,8 +141,7 @@ func (sky *Sky) Calendar(ctx context.Context, s *config.Site, f *config.Feed, fi
 		return nil, fmt.Errorf("feed %q: %w", f.ID, err)
 	}
 	cal.Entries, cal.text, cal.NotCrossed = entries, text, found.notCrossed
-	gaps := found.gaps
-	noteLampLimitGaps(s, f, cal, gaps)
+	noteLampLimitGaps(s, f, cal, found.gaps)
 	return cal, nil
 }
 

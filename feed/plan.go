@@ -101,7 +101,7 @@ func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed,
 		if err != nil {
 			return nil, nil, found{}, err
 		}
-		return sortEntries(es), text, found{gaps: col.gaps, notCrossed: col.notCrossed}, nil
+		return sortEntries(es), text, col.found(), nil
 	}
 	parsed, kinds, err := parsePlans(f.Plans)
 	if err != nil {
@@ -124,7 +124,7 @@ func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed,
 	if es, text, err = sky.planEntries(col, s, f.ID, parsed, kinds, pd, es, text); err != nil {
 		return nil, nil, found{}, err
 	}
-	return sortEntries(es), text, found{gaps: col.gaps, notCrossed: col.notCrossed}, nil
+	return sortEntries(es), text, col.found(), nil
 }
 
 // found is what feedEntries finds beside the entries: the lighting limits
@@ -134,6 +134,9 @@ type found struct {
 	gaps       *limitGaps
 	notCrossed []KindNote
 }
+
+// found is what c found beside the entries.
+func (c *collector) found() found { return found{gaps: c.gaps, notCrossed: c.notCrossed} }
 
 // limitGaps are the lighting limits of a feed that do nothing on some of
 // its dates (see collector.gaps).
@@ -383,7 +386,7 @@ func (kt *kindTimes) day(d time.Time) (dayCrossings, error) {
 		return dc, nil
 	}
 	xs := kt.sun.xs
-	if i := d.Unix()/secondsPerDay - kt.c.first.Unix()/secondsPerDay; i >= 0 && i < int64(len(kt.c.dayDates())) && d == kt.c.dayDates()[i] {
+	if dates, i := kt.c.dayDates(), d.Unix()/secondsPerDay-kt.c.first.Unix()/secondsPerDay; i >= 0 && i < int64(len(dates)) && d == dates[i] {
 		// a date of the collector's: its crossings from the index of
 		// the threshold's by date (dateCrossings), which finds them as
 		// the search below does (a local midnight is a whole second)
@@ -908,8 +911,8 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 	}
 	// a start and an end the same jump of the clocks moves: said once,
 	// after the end
-	both := sMoved && eMoved && sm.by == em.by && z.date(start).Equal(z.date(en.End))
 	sd := z.date(start)
+	both := sMoved && eMoved && sm.by == em.by && sd.Equal(z.date(en.End))
 	var next time.Time // the start's date, when it is past the plan's
 	if sd.After(d) {
 		next = sd

@@ -283,7 +283,7 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 		return err
 	}
 	if site.ZoneInferred { // named with its offset on the first date listed
-		first := time.Date(from.Year(), from.Month(), from.Day(), 12, 0, 0, 0, loc)
+		first := noonOn(from, loc)
 		if o.site != "" || o.feed != "" {
 			fmt.Fprintf(g.stderr, "heliocal: note: %s\n", zoneNote(site, first))
 		} else {
@@ -363,6 +363,13 @@ func localStamp(t time.Time, loc *time.Location) string {
 
 func clock(t time.Time, loc *time.Location) string {
 	return feed.ToSecond(t).In(loc).Format("15:04:05")
+}
+
+// noonOn is 12:00 in loc on the date d (at 00:00 UTC) reads: the time at
+// which a zone taken from a place's coordinates is named with its offset,
+// on the first date listed.
+func noonOn(d time.Time, loc *time.Location) time.Time {
+	return time.Date(d.Year(), d.Month(), d.Day(), 12, 0, 0, 0, loc)
 }
 
 // endClock is the end of a span from start as the tables show it after

@@ -79,8 +79,7 @@ func runEventsFeed(ctx context.Context, g *globals, o *eventsOptions) error {
 		return err
 	}
 	if site.ZoneInferred { // as events --site says it
-		loc := site.TimeZone.Location
-		fmt.Fprintf(g.stderr, "heliocal: note: %s\n", zoneNote(site, time.Date(first.Year(), first.Month(), first.Day(), 12, 0, 0, 0, loc)))
+		fmt.Fprintf(g.stderr, "heliocal: note: %s\n", zoneNote(site, noonOn(first, site.TimeZone.Location)))
 	}
 	switch o.format {
 	case "ics":

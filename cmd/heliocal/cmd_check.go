@@ -198,7 +198,7 @@ func zoneNotes(cfg *config.Config, now time.Time) []string {
 	var notes []string
 	for _, s := range cfg.Sites {
 		if s.ZoneInferred {
-			notes = append(notes, "note: "+zoneNote(&s, now))
+			notes = append(notes, "note: "+zoneNote(&s, now, ""))
 		}
 	}
 	return notes
@@ -206,10 +206,15 @@ func zoneNotes(cfg *config.Config, now time.Time) []string {
 
 // zoneNote says which zone was taken from the coordinates of site s, which
 // has no timezone, named with its offset at when: the words of check,
-// publish, serve and events alike.
-func zoneNote(s *config.Site, when time.Time) string {
-	return fmt.Sprintf("site %s has no timezone: using %s, the zone in force at %s; add timezone: to choose another",
-		s.ID, config.DescribeZone(s.TimeZone.Location, when), feed.Coords(s.Latitude, s.Longitude, 4))
+// publish, serve and events alike. With flag (events at a place given by
+// its coordinates: "--tz") it says that flag was not given, and to give it.
+func zoneNote(s *config.Site, when time.Time, flag string) string {
+	missing, choose := "site "+s.ID+" has no timezone", "; add timezone: to choose another"
+	if flag != "" {
+		missing, choose = "no "+flag+" given", " (give "+flag+" to choose another)"
+	}
+	return fmt.Sprintf("%s: using %s, the zone in force at %s%s",
+		missing, config.DescribeZone(s.TimeZone.Location, when), feed.Coords(s.Latitude, s.Longitude, 4), choose)
 }
 
 // checkConfig builds every feed of a valid configuration once, encoded as

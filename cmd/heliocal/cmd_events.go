@@ -284,12 +284,11 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 	}
 	if site.ZoneInferred { // named with its offset on the first date listed
 		first := noonOn(from, loc)
-		if o.site != "" || o.feed != "" {
-			fmt.Fprintf(g.stderr, "heliocal: note: %s\n", zoneNote(site, first))
-		} else {
-			fmt.Fprintf(g.stderr, "heliocal: no --tz given: using %s, the zone in force at %s (give --tz to choose another)\n",
-				config.DescribeZone(loc, first), feed.Coords(site.Latitude, site.Longitude, 4))
+		line := "note: " + zoneNote(site, first, "")
+		if o.site == "" && o.feed == "" { // a place of --lat and --lon
+			line = zoneNote(site, first, "--tz")
 		}
+		fmt.Fprintf(g.stderr, "heliocal: %s\n", line)
 	}
 	var specs []config.KindSpec
 	if o.feedSpecs != nil && !o.kindsSet {

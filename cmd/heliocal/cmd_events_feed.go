@@ -79,7 +79,7 @@ func runEventsFeed(ctx context.Context, g *globals, o *eventsOptions) error {
 		return err
 	}
 	if site.ZoneInferred { // as events --site says it
-		fmt.Fprintf(g.stderr, "heliocal: note: %s\n", zoneNote(site, noonOn(first, site.TimeZone.Location)))
+		fmt.Fprintf(g.stderr, "heliocal: note: %s\n", zoneNote(site, noonOn(first, site.TimeZone.Location), ""))
 	}
 	switch o.format {
 	case "ics":

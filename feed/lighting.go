@@ -1031,19 +1031,26 @@ const (
 	lightingAdvice    = "Lamp times are for planning; follow the lighting programme of the crop or herd."
 )
 
+// IsNoLampsNote reports whether e is a lighting kind's note that no lamps
+// are needed from its date on (not the note of a date whose lamps are not
+// scheduled, Facts.Short).
+func IsNoLampsNote(e *Entry) bool {
+	return e.Facts.Note && !e.Facts.Short && strings.HasPrefix(e.Kind, config.KindLighting+":")
+}
+
 // LampNoteWithin gives e, a lighting kind's note that no lamps are needed
 // from its date on, the title, description and Facts.Until it has in a
 // calendar of the same kind from e's date to last: until is the first date
 // lamps are needed again, or zero when none is known; a date after last is
 // past that calendar, whose note then says the stretch lasts through last.
 func LampNoteWithin(e *Entry, until, last time.Time) error {
+	if !IsNoLampsNote(e) {
+		return fmt.Errorf("feed: entry %q of kind %q on %s is not a note that no lamps are needed",
+			e.Title, e.Kind, e.Date.Format(time.DateOnly))
+	}
 	k, err := config.ParseKind(e.Kind)
 	if err != nil {
 		return fmt.Errorf("feed: note of kind %q: %w", e.Kind, err)
-	}
-	if k.Name != config.KindLighting || !e.Facts.Note || e.Facts.Short {
-		return fmt.Errorf("feed: entry %q of kind %q on %s is not a note that no lamps are needed",
-			e.Title, e.Kind, e.Date.Format(time.DateOnly))
 	}
 	last = civil(last)
 	if !until.IsZero() && civil(until).After(last) {

@@ -20,7 +20,6 @@ import (
 
 	"rsc.io/qr"
 
-	"heliocal/config"
 	"heliocal/feed"
 	"heliocal/feed/ical"
 	"heliocal/feed/publish"
@@ -367,7 +366,7 @@ type lampNote struct {
 func (y *yearLamps) keep(cal *feed.Calendar, first time.Time, days int) {
 	*y = yearLamps{first: first, last: first.AddDate(0, 0, days-1)}
 	for i := range cal.Entries {
-		if e := &cal.Entries[i]; noLamps(e) {
+		if e := &cal.Entries[i]; feed.IsNoLampsNote(e) {
 			// the calendar's memory goes to the next one
 			y.notes = append(y.notes, lampNote{kind: strings.Clone(e.Kind), date: e.Date, until: e.Facts.Until})
 		}
@@ -397,12 +396,6 @@ func (y *yearLamps) until(kind string, date, last time.Time) (until time.Time, o
 		return time.Time{}, false
 	}
 	return n.until, true
-}
-
-// noLamps reports whether e is a lighting kind's note that no lamps are
-// needed from its date on.
-func noLamps(e *feed.Entry) bool {
-	return e.Facts.Note && !e.Facts.Short && strings.HasPrefix(e.Kind, config.KindLighting+":")
 }
 
 // links are the subscribe links of q (a rolling window from the day of
@@ -469,7 +462,7 @@ func (s *Server) lampNotesAsFed(ctx context.Context, q AdhocQuery, feedDays int,
 		return nil
 	}
 	last := q.Start.AddDate(0, 0, feedDays-1)
-	open := func(e *feed.Entry) bool { return noLamps(e) && e.Facts.Until.IsZero() }
+	open := func(e *feed.Entry) bool { return feed.IsNoLampsNote(e) && e.Facts.Until.IsZero() }
 	var kinds []string // those the year does not answer for
 	for i := range cal.Entries {
 		e := &cal.Entries[i]
@@ -499,7 +492,7 @@ func (s *Server) lampNotesAsFed(ctx context.Context, q AdhocQuery, feedDays int,
 			continue
 		}
 		for j := range long.Entries {
-			if f := &long.Entries[j]; noLamps(f) && f.Kind == e.Kind && f.Date.Equal(e.Date) {
+			if f := &long.Entries[j]; feed.IsNoLampsNote(f) && f.Kind == e.Kind && f.Date.Equal(e.Date) {
 				e.Title, e.Description = strings.Clone(f.Title), strings.Clone(f.Description)
 				e.Facts.Until = f.Facts.Until
 				break

@@ -5,7 +5,6 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"slices"
 	"strings"
 	"sync"
 	"time"
@@ -140,6 +139,7 @@ func chartsFor(cfg *config.Config, now time.Time, feeds *feed.Sky) func(context.
 		// The feeds' kinds entries may keep the same event twice (the same
 		// kind with other filters): it is drawn once.
 		marked := map[publish.Mark]bool{}
+		drawn := map[clockPiece]bool{}
 		crossed := map[time.Duration]map[time.Time]bool{}
 		for _, e := range events {
 			switch {
@@ -148,14 +148,13 @@ func chartsFor(cfg *config.Config, now time.Time, feeds *feed.Sky) func(context.
 					crossed[e.Kind.DayLength] = map[time.Time]bool{}
 				}
 				crossed[e.Kind.DayLength][e.Date] = true
-			case !chartClock(e, site.TimeZone.Location, chart):
+			case !chartClock(e, site.TimeZone.Location, chart, drawn):
 				if m := (publish.Mark{At: e.Start, Label: markLabel(e)}); !marked[m] {
 					chart.Marks = append(chart.Marks, m)
 					marked[m] = true
 				}
 			}
 		}
-		chart.Lamps, chart.Dark = uniqueSpans(chart.Lamps), uniqueSpans(chart.Dark)
 		for _, lv := range levels {
 			// the crossings the feeds keep, on the dates they have them
 			if days := crossed[lv.Length]; lv.Filtered {
@@ -255,17 +254,6 @@ func chartKinds(cfg *config.Config, siteID string) ([]chartLevel, []config.KindS
 	return levels, specs
 }
 
-// uniqueSpans drops the pieces of spans that are the same as one before
-// them, in place.
-func uniqueSpans(spans []publish.ClockSpan) []publish.ClockSpan {
-	seen := make(map[publish.ClockSpan]bool, len(spans))
-	return slices.DeleteFunc(spans, func(s publish.ClockSpan) bool {
-		dup := seen[s]
-		seen[s] = true
-		return dup
-	})
-}
-
 // chartKind parses a kind name the chart always draws.
 func chartKind(name string) config.Kind {
 	k, err := config.ParseKind(name)
@@ -275,11 +263,20 @@ func chartKind(name string) config.Kind {
 	return k
 }
 
+// clockPiece is a piece of a lamp period (Dark false) or of a dark window
+// the chart draws on the clock.
+type clockPiece struct {
+	Dark bool
+	publish.ClockSpan
+}
+
 // chartClock draws one event of the clock's kinds: the sunrise and sunset
 // of its day on the local clock, a new or full Moon, the pieces of a lamp
-// period or dark window (split at local midnight). It reports false for an
-// event of another kind (a mark: the marks are yearly kinds, of other names).
-func chartClock(e feed.Event, loc *time.Location, c *publish.SiteChart) bool {
+// period or dark window (split at local midnight) that drawn does not hold
+// yet (the same event kept by two kinds entries is drawn once). It reports
+// false for an event of another kind (a mark: the marks are yearly kinds,
+// of other names).
+func chartClock(e feed.Event, loc *time.Location, c *publish.SiteChart, drawn map[clockPiece]bool) bool {
 	first := c.Days[0].Date
 	switch e.Kind.Name {
 	case "sunrise", "sunset":
@@ -296,10 +293,18 @@ func chartClock(e feed.Event, loc *time.Location, c *publish.SiteChart) bool {
 		}
 	case "new-moon", "full-moon":
 		c.Phases = append(c.Phases, publish.Phase{At: e.Start, Full: e.Kind.Name == "full-moon"})
-	case config.KindLighting:
-		c.Lamps = append(c.Lamps, clockSpans(e.Start, e.End, loc)...)
-	case "dark-window":
-		c.Dark = append(c.Dark, clockSpans(e.Start, e.End, loc)...)
+	case config.KindLighting, "dark-window":
+		dark := e.Kind.Name == "dark-window"
+		spans := &c.Lamps
+		if dark {
+			spans = &c.Dark
+		}
+		for _, s := range clockSpans(e.Start, e.End, loc) {
+			if p := (clockPiece{dark, s}); !drawn[p] {
+				drawn[p] = true
+				*spans = append(*spans, s)
+			}
+		}
 	default:
 		return false
 	}

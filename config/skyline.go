@@ -46,15 +46,15 @@ func (s *Site) resolveHorizon(path, dir string) []FieldError {
 			return []FieldError{{Path: path, Value: v, Msg: err.Error(), Hint: hint}}
 		}
 		s.HorizonFile = name
-		var ps []FieldError
-		for _, msg := range bad {
-			ps = append(ps, FieldError{Path: path, Value: v, Msg: msg, Hint: hint})
+		ps := bad
+		for i := range ps {
+			ps[i].Path, ps[i].Value, ps[i].Hint = path, v, hint
 		}
 		if len(pts) == 0 && len(bad) > 0 {
-			return ps // no point to check, and not an empty file
+			return inOrder(ps) // no point to check, and not an empty file
 		}
 		// a bad point is named by the file and its line, not its index
-		more := s.setSkyline(path, pts, func(j int) string { return fmt.Sprintf("line %d", lines[j]) }, nil)
+		more := s.setSkyline(path, pts, lines, func(j int) string { return fmt.Sprintf("line %d", lines[j]) }, nil)
 		for i := range more {
 			if more[i].Path != path {
 				more[i].Msg = more[i].Path + ": " + more[i].Value + ": " + more[i].Msg
@@ -62,33 +62,31 @@ func (s *Site) resolveHorizon(path, dir string) []FieldError {
 			more[i].Path, more[i].Value = path, v
 		}
 		ps = append(ps, more...)
-		sortByLine(ps)
 		if len(ps) > 0 {
 			s.Skyline = nil
 		}
-		return ps
+		return inOrder(ps)
 	case []any:
 		pts := make([][2]float64, 0, len(v))
 		var at []int // the index in v of each point of pts
-		var ps []FieldError
+		var ps []pointProblem
 		for j, e := range v {
 			p, ok := pointOf(e)
 			if !ok {
-				ps = append(ps, FieldError{Path: fmt.Sprintf("%s[%d]", path, j), Value: fmt.Sprint(e), Msg: "must be a pair [azimuth, altitude] of numbers",
-					Hint: "e.g. horizon: [[0, 2.5], [90, 8], [180, 1], [270, 4]]"})
+				ps = append(ps, pointProblem{at: j, FieldError: FieldError{Path: fmt.Sprintf("%s[%d]", path, j), Value: fmt.Sprint(e),
+					Msg: "must be a pair [azimuth, altitude] of numbers", Hint: "e.g. horizon: [[0, 2.5], [90, 8], [180, 1], [270, 4]]"}})
 				continue
 			}
 			pts, at = append(pts, p), append(at, j)
 		}
 		if len(pts) == 0 && len(ps) > 0 {
-			return ps
+			return inOrder(ps)
 		}
-		ps = append(ps, s.setSkyline(path, pts, func(j int) string { return fmt.Sprintf("%s[%d]", path, at[j]) }, nil)...)
+		ps = append(ps, s.setSkyline(path, pts, at, func(j int) string { return fmt.Sprintf("%s[%d]", path, at[j]) }, nil)...)
 		if len(ps) > 0 {
-			sort.SliceStable(ps, func(i, j int) bool { return pointIndex(ps[i].Path) < pointIndex(ps[j].Path) })
 			s.Skyline = nil
 		}
-		return ps
+		return inOrder(ps)
 	}
 	return []FieldError{{Path: path, Value: showValue(s.HorizonValue), Msg: "must be a number, a list of [azimuth, altitude] points or a CSV file name",
 		Hint: "e.g. horizon: 1.5, or horizon: [[0, 2.5], [90, 8]]"}}
@@ -127,14 +125,35 @@ func pointOf(e any) ([2]float64, bool) {
 	return p, true
 }
 
+// pointProblem is a problem of a skyline with the place, in what the user
+// wrote, of the point it names (its index in a list, its line in a file;
+// -1 for the skyline as a whole): the problems are reported in that order.
+type pointProblem struct {
+	at int
+	FieldError
+}
+
+// inOrder is the problems ps in the order of the points they name, those
+// of one point in the order found.
+func inOrder(ps []pointProblem) []FieldError {
+	sort.SliceStable(ps, func(i, j int) bool { return ps[i].at < ps[j].at })
+	out := make([]FieldError, len(ps))
+	for i := range ps {
+		out[i] = ps[i].FieldError
+	}
+	return out
+}
+
 // setSkyline checks the points (azimuth 0..360, 360 being 0, distinct;
-// altitude within MinHorizon..MaxHorizon), sorts them and sets Skyline. A
-// problem's path is path[j] for the point j, or, with name, name(j) ("line
-// 4" of a file), and its value the point as "[azimuth, altitude]", or, with
-// show, show(j) (the point as the user wrote it).
-func (s *Site) setSkyline(path string, pts [][2]float64, name, show func(j int) string) []FieldError {
+// altitude within MinHorizon..MaxHorizon), sorts them and sets Skyline. The
+// problem of the point j is at places[j], its place in what the user wrote
+// (its index in a list, its line in a file), or at j without places; its
+// path is path[j], or, with name, name(j) ("line 4" of a file), and its
+// value the point as "[azimuth, altitude]", or, with show, show(j) (the
+// point as the user wrote it).
+func (s *Site) setSkyline(path string, pts [][2]float64, places []int, name, show func(j int) string) []pointProblem {
 	if len(pts) == 0 {
-		return []FieldError{{Path: path, Value: "[]", Msg: "an empty skyline", Hint: "give at least one [azimuth, altitude] point, or a number"}}
+		return []pointProblem{{at: -1, FieldError: FieldError{Path: path, Value: "[]", Msg: "an empty skyline", Hint: "give at least one [azimuth, altitude] point, or a number"}}}
 	}
 	pointAt := func(j int) string {
 		if name != nil {
@@ -143,20 +162,23 @@ func (s *Site) setSkyline(path string, pts [][2]float64, name, show func(j int) 
 		return fmt.Sprintf("%s[%d]", path, j)
 	}
 	seen := map[float64]int{}
-	var ps []FieldError
+	var ps []pointProblem
 	for j, p := range pts {
-		at, value := pointAt(j), ""
+		at, value, place := pointAt(j), "", j
+		if places != nil {
+			place = places[j]
+		}
 		if show != nil {
 			value = show(j)
 		} else {
 			value = fmt.Sprintf("[%s, %s]", ftoa(p[0]), ftoa(p[1]))
 		}
 		if !(p[0] >= 0 && p[0] <= 360) {
-			ps = append(ps, FieldError{Path: at, Value: value, Msg: "azimuth must be within 0..360", Hint: "degrees from the north through the east: 90 is east, 180 south"})
+			ps = append(ps, pointProblem{place, FieldError{Path: at, Value: value, Msg: "azimuth must be within 0..360", Hint: "degrees from the north through the east: 90 is east, 180 south"}})
 			continue
 		}
 		if !(p[1] >= MinHorizon && p[1] <= MaxHorizon) {
-			ps = append(ps, FieldError{Path: at, Value: value, Msg: fmt.Sprintf("altitude must be within %g..%g degrees", MinHorizon, MaxHorizon), Hint: "the apparent altitude of the skyline in that direction; azimuth comes first"})
+			ps = append(ps, pointProblem{place, FieldError{Path: at, Value: value, Msg: fmt.Sprintf("altitude must be within %g..%g degrees", MinHorizon, MaxHorizon), Hint: "the apparent altitude of the skyline in that direction; azimuth comes first"}})
 			continue
 		}
 		az := p[0]
@@ -164,7 +186,7 @@ func (s *Site) setSkyline(path string, pts [][2]float64, name, show func(j int) 
 			az = 0
 		}
 		if k, dup := seen[az]; dup {
-			ps = append(ps, FieldError{Path: at, Value: value, Msg: fmt.Sprintf("azimuth %s given twice (also %s; 0 and 360 are the same)", ftoa(az), pointAt(k)), Hint: "one altitude per direction"})
+			ps = append(ps, pointProblem{place, FieldError{Path: at, Value: value, Msg: fmt.Sprintf("azimuth %s given twice (also %s; 0 and 360 are the same)", ftoa(az), pointAt(k)), Hint: "one altitude per direction"}})
 			continue
 		}
 		seen[az] = j
@@ -178,42 +200,11 @@ func (s *Site) setSkyline(path string, pts [][2]float64, name, show func(j int) 
 	return nil
 }
 
-// pointIndex is the index j of a skyline point's path "….horizon[j]", or -1
-// for the horizon key itself: the order a list's problems are reported in.
-func pointIndex(path string) int {
-	i := strings.LastIndexByte(path, '[')
-	if i < 0 || !strings.HasSuffix(path, "]") {
-		return -1
-	}
-	j, err := strconv.Atoi(path[i+1 : len(path)-1])
-	if err != nil {
-		return -1
-	}
-	return j
-}
-
-// sortByLine orders a skyline file's problems by the line each names
-// ("line 7: …"), as the file reads.
-func sortByLine(ps []FieldError) {
-	line := func(msg string) int {
-		rest, ok := strings.CutPrefix(msg, "line ")
-		if !ok {
-			return 0
-		}
-		end := strings.IndexFunc(rest, func(r rune) bool { return r < '0' || r > '9' })
-		if end < 0 {
-			end = len(rest)
-		}
-		n, _ := strconv.Atoi(rest[:end])
-		return n
-	}
-	sort.SliceStable(ps, func(i, j int) bool { return line(ps[i].Msg) < line(ps[j].Msg) })
-}
-
 // readSkylineCSV reads "azimuth,altitude" lines: the points and the line
-// of each in the file, and a message for each line that is not a point
-// ("line 7: …"). err is a file that cannot be read, or is not CSV.
-func readSkylineCSV(name string) (pts [][2]float64, lines []int, bad []string, err error) {
+// of each in the file, and a problem for each line that is not a point, at
+// that line, whose message names it ("line 7: …"; Path, Value and Hint are
+// the caller's). err is a file that cannot be read, or is not CSV.
+func readSkylineCSV(name string) (pts [][2]float64, lines []int, bad []pointProblem, err error) {
 	f, err := os.Open(name)
 	if err != nil {
 		if errors.Is(err, os.ErrNotExist) {
@@ -244,7 +235,7 @@ func readSkylineCSV(name string) (pts [][2]float64, lines []int, bad []string, e
 			if len(rec) == 1 {
 				fields = "1 field"
 			}
-			bad = append(bad, fmt.Sprintf("line %d: %s, want azimuth,altitude", line, fields))
+			bad = append(bad, pointProblem{line, FieldError{Msg: fmt.Sprintf("line %d: %s, want azimuth,altitude", line, fields)}})
 			continue
 		}
 		a, err1 := strconv.ParseFloat(strings.TrimSpace(rec[0]), 64)
@@ -253,7 +244,7 @@ func readSkylineCSV(name string) (pts [][2]float64, lines []int, bad []string, e
 			if first {
 				continue // a header
 			}
-			bad = append(bad, fmt.Sprintf("line %d: %q is not two numbers", line, strings.Join(rec, ",")))
+			bad = append(bad, pointProblem{line, FieldError{Msg: fmt.Sprintf("line %d: %q is not two numbers", line, strings.Join(rec, ","))}})
 			continue
 		}
 		pts, lines = append(pts, [2]float64{a, b}), append(lines, line)
@@ -342,7 +333,7 @@ func SkylineFromText(flag, v string, round func(float64) float64) ([][2]float64,
 		return nil, oneProblem(bad)
 	}
 	var s Site
-	if ps := s.setSkyline(flag, pts, point, written); len(ps) > 0 {
+	if ps := inOrder(s.setSkyline(flag, pts, nil, point, written)); len(ps) > 0 {
 		for i := range ps {
 			if ps[i].Path != flag { // a point's problem
 				ps[i].Msg = ps[i].Path + " (" + ps[i].Value + "): " + ps[i].Msg

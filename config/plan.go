@@ -83,10 +83,8 @@ func NewDateFilter(weekdays, months, dates []string) DateFilter {
 			f.months |= 1 << mm
 		}
 	}
-	for _, s := range dates {
-		if d, err := ParseListedDate(s); err == nil {
-			f.dates = append(f.dates, dayNumber(d))
-		}
+	for _, d := range ListedDates(dates) {
+		f.dates = append(f.dates, dayNumber(d))
 	}
 	slices.Sort(f.dates)
 	return f
@@ -137,6 +135,19 @@ func ParseListedDate(s string) (time.Time, error) {
 			Hint: "the sky is computed for these dates only"}
 	}
 	return d, nil
+}
+
+// ListedDates are the dates of a dates list (see ParseListedDate), in the
+// order written; those that do not parse are left out (Validate reports
+// them).
+func ListedDates(dates []string) []time.Time {
+	var out []time.Time
+	for _, s := range dates {
+		if d, err := ParseListedDate(s); err == nil {
+			out = append(out, d)
+		}
+	}
+	return out
 }
 
 // Filter returns the date filter of a kinds entry.

@@ -115,6 +115,10 @@ type Calendar struct {
 	// VTIMEZONE covers at least this span.
 	WindowStart time.Time
 	WindowEnd   time.Time
+	// FirstDate and LastDate are the first and last local dates of the
+	// window (00:00 UTC), as the calendar was built for them (TrimmedTo is
+	// where a shortened one reaches).
+	FirstDate, LastDate time.Time
 	// Stamp is the deterministic DTSTAMP / LAST-MODIFIED: derived from the
 	// inputs (e.g. the window start), never from the wall clock.
 	Stamp   time.Time

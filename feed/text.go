@@ -661,13 +661,7 @@ func filterMeaning(spec config.KindSpec) (name, phrase string) {
 	if len(names) > 0 {
 		parts = append(parts, "in "+AndList(names))
 	}
-	var dates []time.Time
-	for _, d := range spec.Dates {
-		if t, err := config.ParseListedDate(d); err == nil {
-			dates = append(dates, t)
-		}
-	}
-	if len(dates) > 0 {
+	if dates := config.ListedDates(spec.Dates); len(dates) > 0 {
 		slices.SortFunc(dates, time.Time.Compare)
 		names = nil
 		for _, d := range dates {

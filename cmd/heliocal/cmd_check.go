@@ -267,9 +267,13 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		for _, w := range lampLimitWarnings(&f, cal) {
 			r.Warnings = append(r.Warnings, w.text)
 		}
-		warnings, later := datesOutsideWindow(&f, shown, cal)
+		listed := make([][]time.Time, len(f.Kinds))
+		for j, k := range f.Kinds {
+			listed[j] = config.ListedDates(k.Dates)
+		}
+		warnings, later := datesOutsideWindow(&f, shown, listed, cal)
 		r.Warnings = append(r.Warnings, warnings...)
-		r.Warnings = append(r.Warnings, datesFilteredOut(&f, shown)...)
+		r.Warnings = append(r.Warnings, datesFilteredOut(&f, shown, listed)...)
 		r.Notes = append(r.Notes, later...)
 		// encoded as publish and serve encode it, under service.oversize:
 		// as it is, shortened, or refused

@@ -15,10 +15,11 @@ import (
 // start is never published (a warning); one after its end is published
 // once the window, which rolls with each day, reaches it, days_ahead days
 // before it (a note: next year's wedding dates are listed ahead). shown are
-// the kinds entries as check's table writes them. One line per date and
-// side, naming every entry that lists the date.
-func datesOutsideWindow(f *config.Feed, shown []string, cal *feed.Calendar) (warnings, notes []string) {
-	first, last := windowDates(cal)
+// the kinds entries as check's table writes them, listed the dates each
+// lists (config.ListedDates). One line per date and side, naming every
+// entry that lists the date.
+func datesOutsideWindow(f *config.Feed, shown []string, listed [][]time.Time, cal *feed.Calendar) (warnings, notes []string) {
+	first, last := cal.FirstDate, cal.LastDate
 	var order []time.Time             // the dates outside, in the order first named
 	named := map[time.Time][]string{} // the entries naming each
 	add := func(entry string, d time.Time) {
@@ -30,11 +31,9 @@ func datesOutsideWindow(f *config.Feed, shown []string, cal *feed.Calendar) (war
 		}
 		named[d] = append(named[d], entry)
 	}
-	for i, k := range f.Kinds {
-		for _, s := range k.Dates {
-			if d, err := config.ParseListedDate(s); err == nil {
-				add(shown[i], d)
-			}
+	for i, dates := range listed {
+		for _, d := range dates {
+			add(shown[i], d)
 		}
 	}
 	for _, p := range f.Plans {
@@ -55,31 +54,16 @@ func datesOutsideWindow(f *config.Feed, shown []string, cal *feed.Calendar) (war
 	return warnings, notes
 }
 
-// windowDates are the first and last local dates (00:00 UTC) of the window
-// cal was built over: the date its start falls on in the site's zone, and
-// the date before the one its end falls on.
-func windowDates(cal *feed.Calendar) (first, last time.Time) {
-	date := func(t time.Time) time.Time {
-		t = t.In(cal.Site.Location)
-		return time.Date(t.Year(), t.Month(), t.Day(), 0, 0, 0, 0, time.UTC)
-	}
-	return date(cal.WindowStart), date(cal.WindowEnd).AddDate(0, 0, -1)
-}
-
 // datesFilteredOut words the dates that a kinds entry of feed f lists
-// (dates) and that the same entry's months or weekdays leave out, so that
-// it never keeps them: one line per date and filter. shown are the kinds
-// entries as check's table writes them.
-func datesFilteredOut(f *config.Feed, shown []string) []string {
+// (listed, as datesOutsideWindow has them) and that the same entry's months
+// or weekdays leave out, so that it never keeps them: one line per date and
+// filter. shown are the kinds entries as check's table writes them.
+func datesFilteredOut(f *config.Feed, shown []string, listed [][]time.Time) []string {
 	var out []string
 	for i, k := range f.Kinds {
 		months := config.NewDateFilter(nil, k.Months, nil)
 		weekdays := config.NewDateFilter(k.Weekdays, nil, nil)
-		for _, s := range k.Dates {
-			d, err := config.ParseListedDate(s)
-			if err != nil {
-				continue
-			}
+		for _, d := range listed[i] {
 			if !months.Allows(d) {
 				out = append(out, fmt.Sprintf("feed %q: %s: %s is in %s, not in its months (%s): it will never be published",
 					f.ID, shown[i], d.Format(time.DateOnly), d.Month(), strings.Join(k.Months, ", ")))

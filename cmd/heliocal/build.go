@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"slices"
 	"strings"
 	"sync"
 	"time"
@@ -95,7 +96,7 @@ const chartWeeksBefore = 4
 // dates, as it does when the feeds reach back four weeks and ahead a year):
 // the Sun's and Moon's positions, the Moon's phases and the year's events are
 // then found once for the feeds and the charts.
-func chartsFor(cfg *config.Config, now time.Time, feeds *feed.Sky) func(context.Context, feed.Site) (*publish.SiteChart, error) {
+func chartsFor(cfg *config.Config, now time.Time, feeds *feed.Sky) func(context.Context, feed.Site, []publish.Trimmed) (*publish.SiteChart, error) {
 	// One ephemeris serves every site's chart: a site's local "today" is
 	// within a day of the UTC one, and the Sky keeps two days of margin.
 	sharedSky := sync.OnceValues(func() (*feed.Sky, error) {
@@ -107,7 +108,7 @@ func chartsFor(cfg *config.Config, now time.Time, feeds *feed.Sky) func(context.
 		}
 		return feed.NewSky(first, last)
 	})
-	return func(ctx context.Context, fs feed.Site) (*publish.SiteChart, error) {
+	return func(ctx context.Context, fs feed.Site, trimmed []publish.Trimmed) (*publish.SiteChart, error) {
 		site, ok := cfg.Site(fs.ID)
 		if !ok {
 			return nil, fmt.Errorf("chart: no site %q", fs.ID)
@@ -125,16 +126,37 @@ func chartsFor(cfg *config.Config, now time.Time, feeds *feed.Sky) func(context.
 			return nil, err
 		}
 		chart.Today = today
-		levels, kinds := chartKinds(cfg, site.ID)
+		until := make(map[string]time.Time, len(trimmed))
+		for _, t := range trimmed {
+			until[t.Feed.ID] = t.To
+		}
+		levels, kinds := chartKinds(cfg, site.ID, until)
 		// One search for the clock's kinds and the feeds' kinds: the
 		// site's crossings of the Sun (over its skyline too) are found once.
 		var specs []config.KindSpec
 		for _, name := range []string{"sunrise", "sunset", "new-moon", "full-moon"} {
 			specs = append(specs, config.KindSpec{Kind: chartKind(name)})
 		}
-		events, _, err := sky.EventsFor(ctx, place, append(specs, kinds...), first, last)
+		var short []chartSpec // the kinds of shortened feeds
+		for _, k := range kinds {
+			if k.until.IsZero() {
+				specs = append(specs, k.KindSpec)
+			} else {
+				short = append(short, k)
+			}
+		}
+		events, _, err := sky.EventsFor(ctx, place, specs, first, last)
 		if err != nil {
 			return nil, err
+		}
+		for _, k := range short {
+			evs, _, err := sky.EventsFor(ctx, place, []config.KindSpec{k.KindSpec}, first, last)
+			if err != nil {
+				return nil, err
+			}
+			events = append(events, slices.DeleteFunc(evs, func(e feed.Event) bool {
+				return entryDate(e, &k.KindSpec, site.TimeZone.Location).After(k.until)
+			})...)
 		}
 		// The feeds' kinds entries may keep the same event twice (the same
 		// kind with other filters): it is drawn once.
@@ -180,11 +202,31 @@ func chartDays(sky *feed.Sky, place feed.Place, first, last time.Time) ([]publis
 }
 
 // chartLevel is a photoperiod threshold of the chart, Filtered when every
-// kinds entry of it keeps some of its crossings only (date filters): the
-// chart then draws those its feeds keep.
+// kinds entry of it keeps some of its crossings only (date filters, or a
+// feed shortened to fit its size): the chart then draws those its feeds
+// keep.
 type chartLevel struct {
 	publish.Level
 	Filtered bool
+}
+
+// chartSpec is a kinds entry whose events the chart draws, through the
+// date until when its feed was shortened to it (service.oversize: trim),
+// else through the chart's end (until zero).
+type chartSpec struct {
+	config.KindSpec
+	until time.Time
+}
+
+// entryDate is the local date of the entry a feed makes of event e of the
+// kinds entry spec: an all-day entry's is that of its start moved by the
+// offset (as the feed dates and shortens it).
+func entryDate(e feed.Event, spec *config.KindSpec, loc *time.Location) time.Time {
+	if !spec.AllDay && e.Kind.Name != "photoperiod" {
+		return e.Date
+	}
+	t := e.Start.Add(spec.Offset.D()).In(loc)
+	return time.Date(t.Year(), t.Month(), t.Day(), 0, 0, 0, 0, time.UTC)
 }
 
 // chartKinds collects, from every feed of the site, the photoperiod
@@ -197,11 +239,14 @@ type chartLevel struct {
 // lamps' end of the day, their limits and minimum, what counts as natural
 // light; the dark window's Moon; min_duration, the date filters, all_day
 // with its offset), so that the chart draws what the feed keeps. Entries
-// with the same such options are computed once.
-func chartKinds(cfg *config.Config, siteID string) ([]chartLevel, []config.KindSpec) {
+// with the same such options are computed once. The entries of a feed
+// shortened to fit its size (until has its last date) are drawn through
+// that date only.
+func chartKinds(cfg *config.Config, siteID string, until map[string]time.Time) ([]chartLevel, []chartSpec) {
 	var levels []chartLevel
-	var specs []config.KindSpec
+	var specs []chartSpec
 	type specKey struct {
+		until                                 time.Time
 		kind                                  string
 		maxLit                                float64
 		min, offset                           config.Duration
@@ -223,7 +268,9 @@ func chartKinds(cfg *config.Config, siteID string) ([]chartLevel, []config.KindS
 			default:
 				continue
 			}
-			filtered := !ks.Filter().IsZero()
+			end := until[f.ID]
+			// a shortened feed keeps only some crossings, as a filter does
+			filtered := !ks.Filter().IsZero() || !end.IsZero()
 			if k.Name == "photoperiod" {
 				if i, ok := level[k.DayLength]; !ok {
 					level[k.DayLength] = len(levels)
@@ -243,10 +290,10 @@ func chartKinds(cfg *config.Config, siteID string) ([]chartLevel, []config.KindS
 			if !filtered {
 				sp.Offset = 0 // it moves only the date a filter reads (an all-day entry's)
 			}
-			key := specKey{k.String(), sp.MaxIllumination, sp.MinDuration, sp.Offset, sp.AllDay, sp.Lamps, sp.Natural, sp.LatestOff, sp.EarliestOn,
+			key := specKey{end, k.String(), sp.MaxIllumination, sp.MinDuration, sp.Offset, sp.AllDay, sp.Lamps, sp.Natural, sp.LatestOff, sp.EarliestOn,
 				strings.Join(sp.Weekdays, ","), strings.Join(sp.Months, ","), strings.Join(sp.Dates, ",")}
 			if !seen[key] {
-				specs = append(specs, sp)
+				specs = append(specs, chartSpec{sp, end})
 			}
 			seen[key] = true
 		}

@@ -27,7 +27,7 @@ feeds:
 		t.Fatal(err)
 	}
 	now := time.Date(2024, 1, 1, 15, 0, 0, 0, time.UTC)
-	c, err := chartsFor(cfg, now, nil)(context.Background(), feed.SiteOf(&cfg.Sites[0]))
+	c, err := chartsFor(cfg, now, nil)(context.Background(), feed.SiteOf(&cfg.Sites[0]), nil)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -133,11 +133,11 @@ feeds:
 		t.Fatal(err)
 	}
 	site := feed.SiteOf(&cfg.Sites[0])
-	shared, err := chartsFor(cfg, now, cat.Sky())(context.Background(), site)
+	shared, err := chartsFor(cfg, now, cat.Sky())(context.Background(), site, nil)
 	if err != nil {
 		t.Fatal(err)
 	}
-	own, err := chartsFor(cfg, now, nil)(context.Background(), site)
+	own, err := chartsFor(cfg, now, nil)(context.Background(), site, nil)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -199,7 +199,7 @@ feeds:
 		if err != nil {
 			t.Fatal(err)
 		}
-		c, err := chartsFor(cfg, time.Date(2024, 1, 1, 15, 0, 0, 0, time.UTC), nil)(context.Background(), feed.SiteOf(&cfg.Sites[0]))
+		c, err := chartsFor(cfg, time.Date(2024, 1, 1, 15, 0, 0, 0, time.UTC), nil)(context.Background(), feed.SiteOf(&cfg.Sites[0]), nil)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -228,5 +228,91 @@ func TestChartNoonClearMarks(t *testing.T) {
 		if got := markLabel(feed.Event{Kind: k, Direction: dir}); got != want {
 			t.Errorf("noon-clear %v: mark %q, want %q", dir, got, want)
 		}
+	}
+}
+
+// A feed that service.oversize: trim shortened is drawn as it is
+// published: the chart's lamp periods, dark windows, season marks and
+// photoperiod crossings of its kinds stop at its last entry's date, not at
+// the end of the chart's year (the invented site at the USNO coordinates
+// of Washington, DC; lamps are needed there every evening of the winter).
+func TestChartStopsWhereTrimmedFeedStops(t *testing.T) {
+	cfg, err := config.Parse(strings.NewReader(`
+service: {max_feed_bytes: 150000, oversize: trim}
+sites:
+  - {id: mall, latitude: 38.889444, longitude: -77.035278, elevation: 0, timezone: America/New_York}
+feeds:
+  - {id: mall-lamps, site: mall, kinds: ["lighting:14h", seasons, "photoperiod:12h", dark-window]}
+`), "yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	now := time.Date(2024, 1, 1, 15, 0, 0, 0, time.UTC)
+	srcs, opts, err := build(cfg, now, layout{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	// the feed as published: its last entry's date
+	cal, err := srcs[0].Build(context.Background())
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := publish.Encode(cal, &opts); err != nil {
+		t.Fatal(err)
+	}
+	if cal.TrimmedTo.IsZero() {
+		t.Fatalf("feed not shortened (%d entries): the test checks nothing", len(cal.Entries))
+	}
+	last := cal.Entries[len(cal.Entries)-1].Date
+	lastOf := map[string]time.Time{} // the last entry's date of each kind
+	for _, e := range cal.Entries {
+		lastOf[e.Kind] = e.Date
+	}
+
+	var c *publish.SiteChart
+	charts := opts.Charts
+	opts.Charts = func(ctx context.Context, s feed.Site, trimmed []publish.Trimmed) (*publish.SiteChart, error) {
+		c, err = charts(ctx, s, trimmed)
+		return c, err
+	}
+	if _, err := publish.Render(context.Background(), srcs, opts); err != nil {
+		t.Fatal(err)
+	}
+	if c == nil {
+		t.Fatal("no chart drawn")
+	}
+	loc := cfg.Sites[0].TimeZone.Location
+	var drawn time.Time // the last date the chart draws an event of the feed's on
+	later := func(what string, d time.Time) {
+		if d.After(drawn) {
+			drawn = d
+		}
+		if d.After(last) {
+			t.Errorf("%s drawn on %s, after the feed's last entry on %s", what, d.Format(time.DateOnly), last.Format(time.DateOnly))
+		}
+	}
+	for _, s := range c.Lamps {
+		later("lamp period", s.Date)
+	}
+	for _, s := range c.Dark {
+		later("dark window", s.Date)
+	}
+	for _, m := range c.Marks {
+		l := m.At.In(loc)
+		later(m.Label, time.Date(l.Year(), l.Month(), l.Day(), 0, 0, 0, 0, time.UTC))
+	}
+	for _, lv := range c.Levels {
+		for i := 1; i < len(c.Days); i++ {
+			if (c.Days[i-1].Daylight >= lv.Length) != (c.Days[i].Daylight >= lv.Length) && (lv.Keeps == nil || lv.Keeps(c.Days[i].Date)) {
+				later(lv.Length.String()+" crossing", c.Days[i].Date)
+			}
+		}
+	}
+	if !drawn.Equal(last) {
+		t.Errorf("the chart draws the feed's events through %s, the feed's last entry is on %s", drawn.Format(time.DateOnly), last.Format(time.DateOnly))
+	}
+	// each kind drawn before the end, where the feed has it
+	if len(c.Marks) == 0 || len(c.Lamps) == 0 || len(c.Dark) == 0 {
+		t.Errorf("%d marks, %d lamp pieces, %d dark-window pieces drawn (the feed's last of each: %v): the test checks none of some", len(c.Marks), len(c.Lamps), len(c.Dark), lastOf)
 	}
 }

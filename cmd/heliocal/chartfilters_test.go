@@ -69,7 +69,7 @@ func TestChartDrawsWhatFeedsKeep(t *testing.T) {
 			drawn := map[string]int{}
 			for i := range cfg.Sites {
 				site := &cfg.Sites[i]
-				c, err := chartsFor(cfg, tc.now, nil)(context.Background(), feed.SiteOf(site))
+				c, err := chartsFor(cfg, tc.now, nil)(context.Background(), feed.SiteOf(site), nil)
 				if err != nil {
 					t.Fatal(err)
 				}

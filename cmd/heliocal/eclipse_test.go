@@ -98,7 +98,7 @@ feeds:
 	if err != nil {
 		t.Fatal(err)
 	}
-	chart, err := chartsFor(cfg, time.Date(2026, 8, 1, 12, 0, 0, 0, time.UTC), nil)(context.Background(), feed.SiteOf(&cfg.Sites[0]))
+	chart, err := chartsFor(cfg, time.Date(2026, 8, 1, 12, 0, 0, 0, time.UTC), nil)(context.Background(), feed.SiteOf(&cfg.Sites[0]), nil)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -207,7 +207,13 @@ func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, 
 			if err := ctx.Err(); err != nil {
 				return nil, fmt.Errorf("publish: %w", err)
 			}
-			c, err := charts(ctx, s)
+			var trimmed []Trimmed
+			for _, t := range l.trimmed {
+				if t.Feed.Site == s.ID {
+					trimmed = append(trimmed, t)
+				}
+			}
+			c, err := charts(ctx, s, trimmed)
 			if err != nil {
 				return nil, fmt.Errorf("publish: chart of site %s: %w", s.ID, err)
 			}

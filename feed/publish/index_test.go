@@ -101,7 +101,7 @@ func TestIndexPage(t *testing.T) {
 	cals := testCalendars(t, "")
 	cals[0].Title = `Sunrise & "first light" <b>`
 	opts := testOptions()
-	opts.Charts = func(_ context.Context, s feed.Site) (*SiteChart, error) { return usnoChart(t, s), nil }
+	opts.Charts = func(_ context.Context, s feed.Site, _ []Trimmed) (*SiteChart, error) { return usnoChart(t, s), nil }
 	page := renderIndexFor(t, opts, cals)
 	doc := parseStrict(t, page)
 	html := string(page)
@@ -336,7 +336,7 @@ func TestChartPolarDayAndNight(t *testing.T) {
 		}
 	}
 	opts := testOptions()
-	opts.Charts = func(_ context.Context, s feed.Site) (*SiteChart, error) {
+	opts.Charts = func(_ context.Context, s feed.Site, _ []Trimmed) (*SiteChart, error) {
 		if s.ID == camp.ID {
 			return c, nil
 		}

@@ -12,6 +12,7 @@ import (
 	"os"
 	"path/filepath"
 	"regexp"
+	"slices"
 	"sort"
 	"sync"
 	"time"
@@ -55,6 +56,15 @@ type manifestJSON struct {
 	Configuration string         `json:"configuration_sha256"`
 	Feeds         []FeedInfo     `json:"feeds"`
 	Sites         []manifestSite `json:"sites"`
+	// Trimmed are the feeds service.oversize: trim shortened, for the
+	// charts of the index.
+	Trimmed []manifestTrim `json:"trimmed,omitempty"`
+}
+
+// manifestTrim is a feed shortened to its last date To ("2027-03-01").
+type manifestTrim struct {
+	Feed string `json:"feed"`
+	To   string `json:"to"`
 }
 
 type manifestSite struct {
@@ -77,6 +87,9 @@ func (l *listing) manifest(sh Shard, digest string) (File, error) {
 			zone = s.Location.String()
 		}
 		m.Sites = append(m.Sites, manifestSite{s.ID, s.Name, s.Latitude, s.Longitude, s.Elevation, zone})
+	}
+	for _, t := range l.trimmed {
+		m.Trimmed = append(m.Trimmed, manifestTrim{t.Feed.ID, t.To.Format(time.DateOnly)})
 	}
 	b, err := marshalJSON(m)
 	if err != nil {
@@ -353,6 +366,14 @@ func (w *Writer) mergeManifests(ctx context.Context, n int, digest string, opts 
 		l.feeds = append(l.feeds, m.Feeds...)
 		if m.Generated.After(gen) {
 			gen = m.Generated
+		}
+		for _, t := range m.Trimmed {
+			to, err := time.Parse(time.DateOnly, t.To)
+			i := slices.IndexFunc(m.Feeds, func(f FeedInfo) bool { return f.ID == t.Feed })
+			if err != nil || i < 0 {
+				return nil, fmt.Errorf("publish: shard manifest: trimmed feed %q to %q: no such feed or date", t.Feed, t.To)
+			}
+			l.trimmed = append(l.trimmed, Trimmed{Feed: m.Feeds[i], To: to})
 		}
 		for _, s := range m.Sites {
 			if seenSite[s.ID] {

@@ -85,8 +85,11 @@ type RenderOptions struct {
 	// means the latest Stamp of the feeds.
 	Generated time.Time
 	// Charts supplies the year's chart of a site for the index page; nil
-	// leaves the charts out. It is called once per site, from one goroutine.
-	Charts func(ctx context.Context, site feed.Site) (*SiteChart, error)
+	// leaves the charts out. It is called once per site, from one goroutine,
+	// with the feeds of the site that Oversize "trim" shortened (none
+	// otherwise): the chart draws none of their events after the last date
+	// each kept (Trimmed.To).
+	Charts func(ctx context.Context, site feed.Site, trimmed []Trimmed) (*SiteChart, error)
 	// MaxCharts is the most sites the index draws charts for (each weighs
 	// about 15 kB); with more sites the page lists them without charts.
 	// Zero means DefaultMaxCharts, negative means no limit.
@@ -355,10 +358,14 @@ type listing struct {
 	generated time.Time
 	feeds     []FeedInfo  // sorted by id
 	sites     []feed.Site // one per site id, sorted by id
+	trimmed   []Trimmed   // the feeds Oversize "trim" shortened
 }
 
 func (l *listing) add(r rendered) {
 	l.feeds = append(l.feeds, r.info)
+	if !r.trimmedTo.IsZero() {
+		l.trimmed = append(l.trimmed, Trimmed{Feed: r.info, To: r.trimmedTo})
+	}
 	for _, s := range l.sites {
 		if s.ID == r.site.ID {
 			return

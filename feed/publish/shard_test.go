@@ -6,7 +6,12 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"reflect"
+	"strings"
 	"testing"
+	"time"
+
+	"heliocal/feed"
 )
 
 func TestShardsPartitionFeeds(t *testing.T) {
@@ -164,5 +169,64 @@ func TestShardedPublishMergesIndex(t *testing.T) {
 	}
 	if st.Index != IndexPending {
 		t.Errorf("shard 0 of a changed configuration merged old manifests: %+v", st)
+	}
+}
+
+// The charts learn which feeds of their site service.oversize: trim
+// shortened, and to which date, alike in memory (Render), on disk (Publish)
+// and from the manifests of a sharded run, so that each draws those feeds
+// as they are published.
+func TestChartsLearnTrimmedFeeds(t *testing.T) {
+	opts := func(got map[string]string) RenderOptions {
+		o := testOptions()
+		// ice-camp-sun (5.1 kB) and orchard-sunrise (3.8 kB) are over it,
+		// orchard-sunset (3.78 kB) is not
+		o.MaxFeedBytes, o.Oversize = 3790, OversizeTrim
+		o.Charts = func(_ context.Context, s feed.Site, trimmed []Trimmed) (*SiteChart, error) {
+			var ts []string
+			for _, tr := range trimmed {
+				ts = append(ts, tr.Feed.ID+" to "+tr.To.Format(time.DateOnly))
+			}
+			got[s.ID] = strings.Join(ts, ", ")
+			return nil, nil
+		}
+		return o
+	}
+	rendered := map[string]string{}
+	b, err := Render(context.Background(), Calendars(testCalendars(t, "")...), opts(rendered))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(b.Trimmed) != 2 {
+		t.Fatalf("%d feeds shortened, want 2 (ice-camp-sun, orchard-sunrise): %+v", len(b.Trimmed), b.Trimmed)
+	}
+	for _, tr := range b.Trimmed {
+		want := tr.Feed.ID + " to " + tr.To.Format(time.DateOnly)
+		if rendered[tr.Feed.Site] != want {
+			t.Errorf("Render: the chart of %s learnt %q, want %q", tr.Feed.Site, rendered[tr.Feed.Site], want)
+		}
+	}
+	if len(rendered) != 2 {
+		t.Errorf("Render: charts of %v, want both sites", rendered)
+	}
+
+	whole := map[string]string{}
+	if _, err := Publish(context.Background(), Calendars(testCalendars(t, "")...), opts(whole), &Writer{Dir: t.TempDir()}); err != nil {
+		t.Fatal(err)
+	}
+	dir := t.TempDir()
+	sharded := map[string]string{}
+	const n = 3
+	for i := range n {
+		o := opts(sharded)
+		o.Shard = Shard{Index: i, Count: n}
+		if _, err := Publish(context.Background(), Calendars(testCalendars(t, "")...), o, &Writer{Dir: dir}); err != nil {
+			t.Fatal(err)
+		}
+	}
+	for what, got := range map[string]map[string]string{"Publish": whole, "sharded Publish": sharded} {
+		if !reflect.DeepEqual(got, rendered) {
+			t.Errorf("%s: the charts learnt %v, Render's %v", what, got, rendered)
+		}
 	}
 }

@@ -94,7 +94,7 @@ func (d *dupFinder) key(parent, written string, line, col int) string {
 	if first, dup := d.seen[path]; dup {
 		d.dups[path] = true
 		d.problems = append(d.problems, FieldError{Path: path,
-			Msg:  fmt.Sprintf("duplicate key: written at %s and at %s (keys ignore case; only one may be given)", first, here),
+			Msg:  fmt.Sprintf("duplicate key: written at %s and at %s; keys ignore case, only one may be given", first, here),
 			Hint: "keep one of them"})
 	} else {
 		d.seen[path] = here

@@ -20,7 +20,7 @@ func TestDatesProblems(t *testing.T) {
 	got := problemLines(t, err)
 	want := []string{
 		`feeds[0].kinds[0].dates[1]: 2027-02-30: not a date (February 2027 has 28 days)`,
-		`feeds[0].kinds[0].dates[2]: 2027-06-12: listed twice (also feeds[0].kinds[0].dates[0]) (remove one)`,
+		`feeds[0].kinds[0].dates[2]: 2027-06-12: listed twice, also as feeds[0].kinds[0].dates[0] (remove one)`,
 		`feeds[0].kinds[0].dates[3]: 1799-12-31: outside the supported range 1800-01-01..2200-12-31 (the sky is computed for these dates only)`,
 		`feeds[0].kinds[0].dates[4]: 2201-01-01: outside the supported range 1800-01-01..2200-12-31 (the sky is computed for these dates only)`,
 		`feeds[0].kinds[0].dates[5]: "12 June 2027": not a date (write YYYY-MM-DD, e.g. 2027-06-12)`,

@@ -214,7 +214,7 @@ func ParseKind(s string) (Kind, error) {
 			return Kind{}, &KindError{Value: s, Msg: "malformed altitude", Hint: `write degrees as a decimal number, e.g. "sun-altitude:-3.5"`}
 		}
 		if !(deg > -90 && deg < 90) {
-			return Kind{}, &KindError{Value: s, Msg: "altitude must be within -90..90 (exclusive)", Hint: "civil twilight is -6, the horizon 0"}
+			return Kind{}, &KindError{Value: s, Msg: "altitude must be above -90 and below 90", Hint: "civil twilight is -6, the horizon 0"}
 		}
 		return Kind{Name: KindSunAltitude, Altitude: deg}, nil
 	case KindSunBand:
@@ -229,7 +229,7 @@ func ParseKind(s string) (Kind, error) {
 			return Kind{}, &KindError{Value: s, Msg: "malformed altitudes", Hint: hint}
 		}
 		if !(lo > -90 && hi < 90) {
-			return Kind{}, &KindError{Value: s, Msg: "altitudes must be within -90..90 (exclusive)", Hint: hint}
+			return Kind{}, &KindError{Value: s, Msg: "altitudes must be above -90 and below 90", Hint: hint}
 		}
 		if !(lo < hi) {
 			return Kind{}, &KindError{Value: s, Msg: "the low altitude must be below the high one", Hint: hint}

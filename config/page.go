@@ -23,7 +23,7 @@ func (p *Page) validate(ps *problems) {
 	for _, l := range pageLimits {
 		v := l.get(p)
 		if n := utf8.RuneCountInString(v); n > l.max {
-			ps.add("page."+l.key, v, fmt.Sprintf("longer than %d characters (%d)", l.max, n), "keep it short: it is shown on the page")
+			ps.add("page."+l.key, v, fmt.Sprintf("has %d characters, more than %d", n, l.max), "keep it short: it is shown on the page")
 			continue
 		}
 		if !utf8.ValidString(v) || strings.IndexFunc(v, func(r rune) bool { return unicode.IsControl(r) && r != '\n' }) >= 0 {

@@ -257,7 +257,7 @@ func parseDateRule(f []string) (DateRule, *RuleError) {
 				return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is not a date of the year written MM-DD", f[1]),
 					Hint: fmt.Sprintf(`write it "every %02d-%02d"`, m, d)}
 			}
-			return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is not a date of the year (MM-DD: a month 01..12, then a day that month has)", f[1]),
+			return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is not a date of the year: MM-DD is a month 01..12, then a day that month has", f[1]),
 				Hint: `e.g. "every 04-25"; "every 02-29" is in leap years only`}
 		}
 		return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is not a weekday, \"day\" or a date MM-DD", f[1]), Hint: `e.g. "every friday" or "every 04-25"`}
@@ -607,7 +607,7 @@ func checkAlarm(ps *problems, path string, a *Duration) {
 	if d := a.D(); d < 0 {
 		ps.add(path, a.String(), "must not be negative: it is the time before each event", `e.g. "15m" for 15 minutes before, "0s" for no reminder`)
 	} else if d > MaxAlarm {
-		ps.add(path, a.String(), "must be at most 7 days (168h)", `e.g. "15m" or "1h"`)
+		ps.add(path, a.String(), "must be at most 7 days, 168h", `e.g. "15m" or "1h"`)
 	}
 }
 
@@ -643,7 +643,7 @@ func checkFilter(ps *problems, p string, weekdays, months, dates []string) {
 			continue
 		}
 		if j, ok := seen[dayNumber(d)]; ok {
-			ps.add(path, v, fmt.Sprintf("listed twice (also %s.dates[%d])", p, j), "remove one")
+			ps.add(path, v, fmt.Sprintf("listed twice, also as %s.dates[%d]", p, j), "remove one")
 			continue
 		}
 		seen[dayNumber(d)] = i

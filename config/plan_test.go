@@ -59,7 +59,7 @@ func TestDateRuleWrittenOneWay(t *testing.T) {
 		{"every 6-12", `"6-12" is not a date of the year written MM-DD`, `write it "every 06-12"`},
 		{"every 06-1", `"06-1" is not a date of the year written MM-DD`, `write it "every 06-01"`},
 		{"every 2-29", `"2-29" is not a date of the year written MM-DD`, `write it "every 02-29"`},
-		{"every 2-30", `"2-30" is not a date of the year (MM-DD: a month 01..12, then a day that month has)`, `e.g. "every 04-25"; "every 02-29" is in leap years only`},
+		{"every 2-30", `"2-30" is not a date of the year: MM-DD is a month 01..12, then a day that month has`, `e.g. "every 04-25"; "every 02-29" is in leap years only`},
 		{"every 2027-06-12", `"2027-06-12" is one date, not a date of every year`, `for that date alone, write it without "every"; for every year, "every MM-DD"`},
 		{"2027-6-12", "not a date", "write it 2027-06-12"},
 		{"2027/06/12", "not a date", "write it 2027-06-12"},

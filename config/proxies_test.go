@@ -44,7 +44,7 @@ func TestPageSection(t *testing.T) {
 		t.Error("without page.builder the builder is not shown")
 	}
 	_, err = Parse(strings.NewReader("page:\n  title: \""+strings.Repeat("x", 121)+"\"\n"+site), "yaml")
-	if err == nil || !strings.Contains(err.Error(), "page.title") || !strings.Contains(err.Error(), "longer than 120") {
+	if err == nil || !strings.Contains(err.Error(), "page.title") || !strings.Contains(err.Error(), "has 121 characters, more than 120 (keep it short") {
 		t.Errorf("a 121-character title: %v", err)
 	}
 	_, err = Parse(strings.NewReader("page:\n  tilte: x\n"+site), "yaml")

@@ -186,7 +186,7 @@ func (s *Site) setSkyline(path string, pts [][2]float64, places []int, name, sho
 			az = 0
 		}
 		if k, dup := seen[az]; dup {
-			ps = append(ps, pointProblem{place, FieldError{Path: at, Value: value, Msg: fmt.Sprintf("azimuth %s given twice (also %s; 0 and 360 are the same)", ftoa(az), pointAt(k)), Hint: "one altitude per direction"}})
+			ps = append(ps, pointProblem{place, FieldError{Path: at, Value: value, Msg: fmt.Sprintf("azimuth %s given twice, also at %s: 0 and 360 are the same", ftoa(az), pointAt(k)), Hint: "one altitude per direction"}})
 			continue
 		}
 		seen[az] = j
@@ -308,8 +308,8 @@ func oneProblem(ps []FieldError) FieldError {
 // HorizonFromText it reads no file: for text from the network. A problem
 // is a FieldError for flag and the value whose message names the point at
 // fault by its place and as written, "point 2 (90:60): altitude must be
-// within -5..45 degrees", and another point by its place, "(also point
-// 1; …)"; several points at fault are all named, one after the other
+// within -5..45 degrees", and another point by its place, "also at point
+// 1: …"; several points at fault are all named, one after the other
 // (oneProblem). The points come back sorted by azimuth, 360 written 0.
 func SkylineFromText(flag, v string, round func(float64) float64) ([][2]float64, error) {
 	items := strings.Split(strings.TrimSpace(v), ",")

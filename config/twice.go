@@ -2,7 +2,6 @@ package config
 
 import (
 	"strconv"
-	"strings"
 )
 
 // KindTwice is a kind that two entries of one list give: a feed's kinds or
@@ -46,24 +45,27 @@ func KindsTwice(specs []KindSpec) []KindTwice {
 }
 
 // Msg is what is wrong, one wording wherever kinds are listed: `"sunrise"
-// listed twice`, `"june-solstice" listed twice (also in "seasons")`. at
+// listed twice`, `"june-solstice" listed twice, also in "seasons"`. at
 // names an entry of the list by its index ("feeds[0].kinds[0]"); nil when
-// the list has no such names (a flag's value).
+// the list has no such names (a flag's value). The message names the
+// earlier entry as what it is: the kind itself (`"sunrise" listed twice,
+// also as feeds[0].kinds[0]`) or a group giving it (`also in "seasons" at
+// feeds[0].kinds[0]`); when the later entry is the group, both are named
+// (`listed twice: as feeds[0].kinds[0] and in "seasons"`).
 func (t KindTwice) Msg(at func(i int) string) string {
-	var also []string
-	if at != nil {
-		also = append(also, at(t.First))
-	}
-	group := t.Given[0] // the entry that gives the kind without being it
-	if group == t.Kind {
-		group = t.Given[1]
-	}
-	if group != t.Kind {
-		also = append(also, strconv.Quote(group.String()))
-	}
 	m := strconv.Quote(t.Kind.String()) + " listed twice"
-	if len(also) > 0 {
-		m += " (also in " + strings.Join(also, ", ") + ")"
+	first, second := t.Given[0], t.Given[1]
+	switch {
+	case first != t.Kind && at != nil: // the earlier entry is a group
+		return m + ", also in " + strconv.Quote(first.String()) + " at " + at(t.First)
+	case first != t.Kind:
+		return m + ", also in " + strconv.Quote(first.String())
+	case second != t.Kind && at != nil: // the later entry is a group
+		return m + ": as " + at(t.First) + " and in " + strconv.Quote(second.String())
+	case second != t.Kind:
+		return m + ", also in " + strconv.Quote(second.String())
+	case at != nil:
+		return m + ", also as " + at(t.First)
 	}
 	return m
 }

@@ -25,13 +25,13 @@ func TestKindsTwice(t *testing.T) {
 		flag, feed string
 	}{
 		{[]KindSpec{spec("sunrise", 0), spec("sunset", 0), spec("sunrise", 0)}, 2,
-			`"sunrise" listed twice`, `"sunrise" listed twice (also in feeds[0].kinds[0])`},
+			`"sunrise" listed twice`, `"sunrise" listed twice, also as feeds[0].kinds[0]`},
 		{[]KindSpec{spec("seasons", 0), spec("june-solstice", 0)}, 1,
-			`"june-solstice" listed twice (also in "seasons")`, `"june-solstice" listed twice (also in feeds[0].kinds[0], "seasons")`},
+			`"june-solstice" listed twice, also in "seasons"`, `"june-solstice" listed twice, also in "seasons" at feeds[0].kinds[0]`},
 		{[]KindSpec{spec("june-solstice", 0), spec("seasons", 0)}, 1,
-			`"june-solstice" listed twice (also in "seasons")`, `"june-solstice" listed twice (also in feeds[0].kinds[0], "seasons")`},
+			`"june-solstice" listed twice, also in "seasons"`, `"june-solstice" listed twice: as feeds[0].kinds[0] and in "seasons"`},
 		{[]KindSpec{spec("moon-phases", 0), spec("moon-phases", 0)}, 1,
-			`"moon-phases" listed twice`, `"moon-phases" listed twice (also in feeds[0].kinds[0])`},
+			`"moon-phases" listed twice`, `"moon-phases" listed twice, also as feeds[0].kinds[0]`},
 		{[]KindSpec{spec("sunrise", 0), spec("sunrise", -30*time.Minute)}, -1, "", ""},
 		{[]KindSpec{spec("golden-hour", 0), spec("sun-band:-4..6", 0), spec("blue-hour", 0)}, -1, "", ""},
 	} {

@@ -183,7 +183,7 @@ func (c *Config) Validate() error {
 			continue
 		}
 		if j, dup := siteIDs[s.ID]; dup {
-			ps.add(p+".id", s.ID, fmt.Sprintf("duplicate site id (also sites[%d].id)", j), "give every site its own id")
+			ps.add(p+".id", s.ID, fmt.Sprintf("duplicate site id, also that of sites[%d]", j), "give every site its own id")
 			continue
 		}
 		siteIDs[s.ID] = i
@@ -199,7 +199,7 @@ func (c *Config) Validate() error {
 		f.validate(&ps, p)
 		if f.ID != "" {
 			if j, dup := feedIDs[f.ID]; dup {
-				ps.add(p+".id", f.ID, fmt.Sprintf("duplicate feed id (also feeds[%d].id)", j), "feed ids name the published files; give every feed its own id")
+				ps.add(p+".id", f.ID, fmt.Sprintf("duplicate feed id, also that of feeds[%d]", j), "feed ids name the published files; give every feed its own id")
 			} else {
 				feedIDs[f.ID] = i
 			}
@@ -537,7 +537,7 @@ func (f *Feed) validate(ps *problems, p string) {
 		if f.DaysBack < 1<<40 && f.DaysAhead < 1<<40 { // the sum cannot overflow
 			window = fmt.Sprintf("window of %d days", f.DaysBack+f.DaysAhead)
 		}
-		ps.add(p+".days_ahead", strconv.Itoa(f.DaysAhead), fmt.Sprintf("%s (days_back %d + days_ahead %d) is over 10 years (%d days)", window, f.DaysBack, f.DaysAhead, MaxWindowDays), "large feeds are dropped by some calendar apps; use 30 back and 365 ahead")
+		ps.add(p+".days_ahead", strconv.Itoa(f.DaysAhead), fmt.Sprintf("%s (days_back %d + days_ahead %d) is over 10 years, %d days", window, f.DaysBack, f.DaysAhead, MaxWindowDays), "large feeds are dropped by some calendar apps; use 30 back and 365 ahead")
 	}
 	if f.Color != "" && !IsColorName(f.Color) {
 		hint := "a CSS3 colour name such as \"goldenrod\" or \"steelblue\""
@@ -549,7 +549,7 @@ func (f *Feed) validate(ps *problems, p string) {
 	if a := f.Alarm.D(); a < 0 {
 		ps.add(p+".alarm", f.Alarm.String(), "must not be negative: it is the time before each event", `e.g. "15m" for 15 minutes before`)
 	} else if a > MaxAlarm {
-		ps.add(p+".alarm", f.Alarm.String(), "must be at most 7 days (168h)", `e.g. "15m" or "1h"`)
+		ps.add(p+".alarm", f.Alarm.String(), "must be at most 7 days, 168h", `e.g. "15m" or "1h"`)
 	}
 }
 
@@ -636,7 +636,7 @@ func (ks *KindSpec) validateBand(ps *problems, p string) {
 		v   *float64
 	}{{"low", ks.Low}, {"high", ks.High}} {
 		if o.v != nil && !(*o.v > -90 && *o.v < 90) {
-			ps.add(p+"."+o.key, ftoa(*o.v), "must be within -90..90 (exclusive)", "the Sun's altitude in degrees, negative below the horizon")
+			ps.add(p+"."+o.key, ftoa(*o.v), "must be above -90 and below 90", "the Sun's altitude in degrees, negative below the horizon")
 			return
 		}
 	}

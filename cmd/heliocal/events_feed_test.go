@@ -370,7 +370,7 @@ func TestEventsHorizonSkylineFlag(t *testing.T) {
 		"0:2,90:x":      `--horizon: "0:2,90:x": point 2 (90:x): must be azimuth:altitude`,
 		"0:2,90:60":     `--horizon: "0:2,90:60": point 2 (90:60): altitude must be within -5..45 degrees`,
 		"missing.csv":   "--horizon: missing.csv: no such skyline file",
-		"0:2,360:3,0:4": `--horizon: "0:2,360:3,0:4": point 2 (360:3): azimuth 0 given twice (also point 1`,
+		"0:2,360:3,0:4": `--horizon: "0:2,360:3,0:4": point 2 (360:3): azimuth 0 given twice, also at point 1:`,
 	} {
 		code, _, errOut := runCLI(t, "events", "--lat", "47", "--lon", "11", "--tz", "UTC", "--horizon", h)
 		if code != exitInput || !strings.Contains(errOut, want) {

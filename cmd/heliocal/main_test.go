@@ -200,14 +200,14 @@ func TestEventsBadInput(t *testing.T) {
 		{"zone", []string{"events", "--lat", "0", "--lon", "0", "--tz", "Mars/Olympus"}, "Mars/Olympus"},
 		{"kind", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "sunrize"}, "sunrize"},
 		{"kind twice", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "sunrise,sunset,sunrise"}, `--kinds: "sunrise,sunset,sunrise": "sunrise" listed twice`},
-		{"kind twice in a group", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "seasons,june-solstice"}, `"june-solstice" listed twice (also in "seasons")`},
-		{"kind twice, the group after", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "june-solstice,seasons"}, `"june-solstice" listed twice (also in "seasons")`},
+		{"kind twice in a group", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "seasons,june-solstice"}, `"june-solstice" listed twice, also in "seasons" (give each kind once)`},
+		{"kind twice, the group after", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "june-solstice,seasons"}, `"june-solstice" listed twice, also in "seasons" (give each kind once)`},
 		{"group twice", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "seasons,seasons"}, `--kinds: "seasons,seasons": "seasons" listed twice (give each kind once)`},
 		// a feed's kinds are checked by the same function, with the same words
 		{"kind twice in a config", []string{"check", "--config", filepath.Join("..", "..", "testdata", "config", "duplicate-kind.yaml")},
-			`feeds[0].kinds[1]: june-solstice: "june-solstice" listed twice (also in feeds[0].kinds[0], "seasons") (give each kind once, or give one an offset)`},
+			`feeds[0].kinds[1]: june-solstice: "june-solstice" listed twice, also in "seasons" at feeds[0].kinds[0] (give each kind once, or give one an offset)`},
 		{"kind twice in a group, flag", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "seasons,june-solstice"},
-			`--kinds: "seasons,june-solstice": "june-solstice" listed twice (also in "seasons") (give each kind once)`},
+			`--kinds: "seasons,june-solstice": "june-solstice" listed twice, also in "seasons" (give each kind once)`},
 		{"date", []string{"events", "--lat", "0", "--lon", "0", "--from", "2027-13-01"}, "--from: \"2027-13-01\""},
 		// a date of the command line is written as the configuration's, with the same hint
 		{"one-digit month", []string{"events", "--lat", "0", "--lon", "0", "--from", "2027-6-12"}, `heliocal: --from: "2027-6-12": not a date (write it 2027-06-12)` + "\n"},

@@ -62,7 +62,7 @@ func TestAdhocBadParameters(t *testing.T) {
 		{ok + "&horizon=0:2,90:x", "horizon", `"0:2,90:x"`},
 		{ok + "&horizon=0:2,90:60", "horizon", `"0:2,90:60": point 2 (90:60): altitude must be within -5..45 degrees (`},
 		{ok + "&horizon=0:2,361:4", "horizon", `point 2 (361:4): azimuth must be within 0..360`},
-		{ok + "&horizon=0:2,360:4", "horizon", `azimuth 0 given twice (also point 1`},
+		{ok + "&horizon=0:2,360:4", "horizon", `azimuth 0 given twice, also at point 1:`},
 		{ok + "&horizon=10.01:2,10.04:3", "horizon", `given twice`},
 		{ok + "&horizon=0:2,,90:8", "horizon", `point 2 ()`},
 		{ok + "&horizon=0:2/90:8", "horizon", `point 1 (0:2/90:8): must be azimuth:altitude`},

@@ -65,7 +65,24 @@ func TestAdhocTitleNamesHemispheres(t *testing.T) {
 	if !strings.Contains(ics, "X-WR-CALNAME:Sky events at 45.0300° S\\, 168.6600° E\r\n") {
 		t.Errorf("ad-hoc feed's name:\n%s", ics)
 	}
-	if page := getOK(t, ts.URL+"/at?"+q); !strings.Contains(page, "<h1>Sky events at 45.0300° S, 168.6600° E</h1>") || !strings.Contains(page, `<p class="intro">45.0300° S, 168.6600° E, 0 m ·`) {
+	if page := getOK(t, ts.URL+"/at?"+q); !strings.Contains(page, "<h1>Sky events at 45.0300° S, 168.6600° E</h1>") || !strings.Contains(page, `<p class="intro">Elevation 0 m ·`) {
 		t.Errorf("the /at page names the place by signed numbers:\n%s", page)
+	}
+}
+
+// The /at page names the place once, where it is read: a place without a
+// name by its coordinates in the heading (not again in the line under
+// it), a named one by its name in the heading and its coordinates under it.
+func TestAdhocPageNamesPlaceOnce(t *testing.T) {
+	ts := builderServer(t)
+	for _, tc := range []struct{ query, h1, intro string }{
+		{"", "<h1>Sky events at 47.8000° N, 13.0500° E</h1>", `<p class="intro">Elevation 0 m, horizon 2.5° · times in Europe/Vienna`},
+		{"&name=Gaisberg", "<h1>Sky events at Gaisberg</h1>", `<p class="intro">47.8000° N, 13.0500° E, 0 m, horizon 2.5° · times in Europe/Vienna`},
+	} {
+		page := getOK(t, ts.URL+"/at?lat=47.8&lon=13.05&tz=Europe/Vienna&kinds=sunrise&days=3&horizon=2.5"+tc.query)
+		_, shown, _ := strings.Cut(page, "<body>")
+		if !strings.Contains(shown, tc.h1) || !strings.Contains(shown, tc.intro) || strings.Count(shown, "47.8000° N, 13.0500° E") != 1 {
+			t.Errorf("/at%s: want %q, then %q, the coordinates once:\n%s", tc.query, tc.h1, tc.intro, shown)
+		}
 	}
 }

@@ -669,7 +669,7 @@ func (s *Server) render(w http.ResponseWriter, r *http.Request, name string, dat
 type tableView struct {
 	Page        PageInfo
 	Title, Zone string
-	Coords      string
+	Coords      string // under the heading: the coordinates (unless the heading names the place by them), elevation, horizon
 	HTTPS       string
 	// Webcal is the subscribe link; html/template would replace a plain
 	// string of the webcal: scheme with "#ZgotmplZ" (it lets only http,
@@ -688,8 +688,14 @@ func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	https, page := s.links(r, q, start, 0)
+	// the heading names a place without a name by its coordinates: the
+	// line under it does not say them again
+	place := feed.Coords(q.Latitude, q.Longitude, 4) + fmt.Sprintf(", %g m", q.Elevation)
+	if q.Name == "" {
+		place = fmt.Sprintf("Elevation %g m", q.Elevation)
+	}
 	v := tableView{Page: s.page(), Title: cal.Title, Zone: q.Location.String(),
-		Coords: feed.Coords(q.Latitude, q.Longitude, 4) + fmt.Sprintf(", %g m", q.Elevation) + q.horizonWords(),
+		Coords: place + q.horizonWords(),
 		HTTPS:  https, Webcal: template.URL(webcal(https)), Link: template.URL(page), QR: template.URL(qrDataURL(page)),
 		Days: days(cal, q), From: q.Start.Format(time.DateOnly), To: q.Start.AddDate(0, 0, q.Days-1).Format(time.DateOnly),
 		Builder: !s.page().NoBuilder, Legal: slices.ContainsFunc(q.Kinds, LegalKind)}

@@ -80,7 +80,7 @@ func TestBuilderPages(t *testing.T) {
 		{"/", "text/html; charset=utf-8", `id="builder"`},
 		{"/at?lat=47.8&lon=13.05&kinds=sunrise&days=3&start=2026-03-20", "text/html; charset=utf-8", "2026-03-22"},
 		// the heading says which horizon the times are for
-		{"/at?lat=47.8&lon=13.05&kinds=sunrise&days=3&horizon=90:8,0:2,180:1", "text/html; charset=utf-8", "47.8000° N, 13.0500° E, 0 m, skyline 0:2, 90:8, 180:1 (azimuth:altitude)"},
+		{"/at?lat=47.8&lon=13.05&kinds=sunrise&days=3&horizon=90:8,0:2,180:1", "text/html; charset=utf-8", "Elevation 0 m, skyline 0:2, 90:8, 180:1 (azimuth:altitude)"},
 		{"/at?lat=47.8&lon=13.05&kinds=sunrise&days=3&horizon=" + skylinePoints(9), "text/html; charset=utf-8", "0 m, skyline of 9 points"},
 		{"/at?lat=47.8&lon=13.05&kinds=sunrise&days=3&horizon=2.5", "text/html; charset=utf-8", "0 m, horizon 2.5°"},
 		{"/assets/builder.js", "text/javascript; charset=utf-8", "parseAngle"},

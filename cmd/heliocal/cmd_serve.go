@@ -60,8 +60,10 @@ gracefully.` + exitStatusHelp,
 // reloadServe reads the configuration again and, if it is valid and its
 // feeds build, serves them: with its base URL, and on its refresh schedule
 // when that changed. It returns the new configuration, or nil when the
-// reload was refused (the old feeds, URL and schedule stay).
-func reloadServe(ctx context.Context, g *globals, log *slog.Logger, srv *serve.Server, old *config.Config, baseOf func(*config.Config) string) *config.Config {
+// reload was refused (the old feeds, URL and schedule stay). listenFlag is
+// --listen, "" when not given: a changed service.listen then asks for a
+// restart; under --listen a restart would listen where it does now.
+func reloadServe(ctx context.Context, g *globals, log *slog.Logger, srv *serve.Server, old *config.Config, baseOf func(*config.Config) string, listenFlag string) *config.Config {
 	if g.configPath == stdinPath {
 		log.Error("reload refused: the configuration was read from standard input, which cannot be read again; still serving the old feeds (restart heliocal to change them)")
 		srv.RefuseReload(errors.New("the configuration was read from standard input"))
@@ -82,7 +84,11 @@ func reloadServe(ctx context.Context, g *globals, log *slog.Logger, srv *serve.S
 		}
 	}
 	if next.Service.Listen != old.Service.Listen {
-		log.Warn("service.listen changed: restart heliocal to listen on the new address", "listen", next.Service.Listen)
+		if listenFlag == "" {
+			log.Warn("service.listen changed: restart heliocal to listen on the new address", "listen", next.Service.Listen)
+		} else {
+			log.Info("service.listen changed, but --listen is given and stays in force, after a restart too", "listen", listenFlag, "service.listen", next.Service.Listen)
+		}
 	}
 	log.Info("configuration reloaded", "source", src.String(), "sites", len(next.Sites), "feeds", len(next.Feeds), "base_url", baseOf(next))
 	return next
@@ -220,7 +226,7 @@ func runServe(ctx context.Context, g *globals, o *serveOptions) error {
 			case <-ctx.Done():
 				return
 			case <-hup:
-				if next := reloadServe(ctx, g, log, srv, cfg, baseOf); next != nil {
+				if next := reloadServe(ctx, g, log, srv, cfg, baseOf, o.listen); next != nil {
 					cfg = next
 					setAdhoc(cfg)
 					srv.SetPage(pageInfo(cfg))

@@ -29,7 +29,8 @@ feeds:
 
 // A SIGHUP that changes base_url and the refresh schedule applies both
 // without a restart: the feeds (and ad-hoc feeds) carry the new URL, the
-// next refresh follows the new schedule, and Cache-Control its interval.
+// next refresh follows the new schedule, and Cache-Control its interval. A
+// changed service.listen asks for no restart while --listen is given.
 // /metrics names the running build.
 func TestServeReloadAppliesBaseURLAndSchedule(t *testing.T) {
 	path := filepath.Join(t.TempDir(), "sky.yaml")
@@ -67,11 +68,16 @@ func TestServeReloadAppliesBaseURLAndSchedule(t *testing.T) {
 		t.Errorf("/metrics lacks heliocal_build_info:\n%s", grepLines(m, "build_info"))
 	}
 
-	write("  base_url: https://b.example.org/\n  refresh: \"@every 2h\"\n  refresh_zone: UTC\n")
+	// service.listen changes too, but --listen is given: a restart would
+	// listen where serve does now, so the log must not ask for one.
+	write("  base_url: https://b.example.org/\n  refresh: \"@every 2h\"\n  refresh_zone: UTC\n  listen: \"127.0.0.1:1\"\n")
 	if err := syscall.Kill(os.Getpid(), syscall.SIGHUP); err != nil {
 		t.Fatal(err)
 	}
 	waitFor(t, logs, "the reload", func() bool { return strings.Contains(logs.String(), "configuration reloaded") })
+	if l := logs.String(); strings.Contains(l, "restart heliocal") || !strings.Contains(l, "--listen is given and stays in force") {
+		t.Errorf("a changed service.listen under --listen: the log asks for a restart or does not say --listen stays:\n%s", grepLines(l, "listen"))
+	}
 	_, h, body = fetch("/feeds/north-sun.ics")
 	if !strings.Contains(body, "SOURCE;VALUE=URI:https://b.example.org/north-sun.ics\r\n") || !strings.Contains(body, "REFRESH-INTERVAL;VALUE=DURATION:PT2H\r\n") {
 		t.Errorf("after the reload the feed has the old URL or interval:\n%.800s", body)

@@ -33,6 +33,11 @@ type eventsOptions struct {
 	format    string
 	maxLit    float64
 	placeFlag bool // --lat or --lon given
+	// placeOnly is the first of --elev, --horizon, --pressure and
+	// --temperature given, as written ("--elev 500"): they describe a place
+	// given by --lat and --lon, and are refused with --site and --feed,
+	// whose site has its own in the configuration
+	placeOnly string
 	latGiven  bool
 	// --pressure and --temperature, nil when not given
 	pressure, temperature   *float64
@@ -77,6 +82,12 @@ bytes as the published feed for the same window).` + exitStatusHelp,
 			}
 			if cmd.Flags().Changed("temperature") {
 				o.temperature = &o.temperatureV
+			}
+			for _, name := range []string{"elev", "horizon", "pressure", "temperature"} {
+				if fl := cmd.Flags().Lookup(name); fl.Changed {
+					o.placeOnly = "--" + name + " " + fl.Value.String()
+					break
+				}
 			}
 			o.kindsSet = cmd.Flags().Changed("kinds")
 			o.now = time.Now()
@@ -136,6 +147,9 @@ func eventsPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 		if o.placeFlag || o.tz != "" {
 			return nil, badInput("--site %q: give either --site or --lat/--lon/--tz, not both", o.site)
 		}
+		if o.placeOnly != "" {
+			return nil, placeOnlyError(o.placeOnly, "--site", o.site)
+		}
 		cfg, _, err := loadConfig(g)
 		if err != nil {
 			return nil, err
@@ -191,10 +205,25 @@ func eventsPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 	return s, nil
 }
 
+// placeOnlyError refuses flag, one of --elev, --horizon, --pressure and
+// --temperature as written ("--elev 500"), beside --site or --feed (by, its
+// value id): the site's elevation, horizon and air come from the
+// configuration, and a flag that changed nothing would go unnoticed.
+func placeOnlyError(flag, by, id string) error {
+	whose := "the site's"
+	if by == "--feed" {
+		whose = "its site's"
+	}
+	return badInput("%s: only for a place given by --lat and --lon; %s %q takes %s elevation, horizon, pressure and temperature from the configuration", flag, by, id, whose)
+}
+
 // feedPlace resolves --feed: the feed's site, and its kinds for runEvents.
 func feedPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 	if o.site != "" || o.placeFlag || o.tz != "" {
 		return nil, badInput("--feed %q: give either --feed, --site or --lat/--lon/--tz", o.feed)
+	}
+	if o.placeOnly != "" {
+		return nil, placeOnlyError(o.placeOnly, "--feed", o.feed)
 	}
 	cfg, _, err := loadConfig(g)
 	if err != nil {

@@ -28,6 +28,9 @@ func runEventsFeed(ctx context.Context, g *globals, o *eventsOptions) error {
 	if o.site != "" || o.placeFlag || o.tz != "" || o.maxLit != 0 {
 		return badInput("--feed %q: give either --feed, --site or --lat/--lon/--tz; the feed's options come from the configuration", o.feed)
 	}
+	if o.placeOnly != "" {
+		return placeOnlyError(o.placeOnly, "--feed", o.feed)
+	}
 	cfg, _, err := loadConfig(g)
 	if err != nil {
 		return err

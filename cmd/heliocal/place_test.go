@@ -27,6 +27,30 @@ func TestEventsCoordinatesRequired(t *testing.T) {
 	}
 }
 
+// --elev, --horizon, --pressure and --temperature describe a place given by
+// --lat and --lon; beside --site or --feed, whose site has its own in the
+// configuration, each is refused naming the flag and its value, not ignored.
+func TestEventsPlaceFlagsRefusedWithSite(t *testing.T) {
+	day := []string{"--from", "2027-01-01", "--to", "2027-01-01"}
+	for _, tc := range []struct {
+		args []string
+		want string
+	}{
+		{[]string{"--site", "fernhollow", "--elev", "500"}, `--elev 500: only for a place given by --lat and --lon; --site "fernhollow" takes the site's elevation`},
+		{[]string{"--site", "fernhollow", "--kinds", "sunrise", "--horizon", "0:2,90:8"}, `--horizon 0:2,90:8: only for a place given by --lat and --lon`},
+		{[]string{"--feed", "fernhollow-sun", "--temperature", "-20"}, `--temperature -20: only for a place given by --lat and --lon; --feed "fernhollow-sun" takes its site's`},
+		{[]string{"--feed", "fernhollow-sun", "--kinds", "sunrise", "--pressure", "990"}, `--pressure 990: only for`},
+	} {
+		code, out, errOut := runCLI(t, append(append([]string{"events"}, tc.args...), day...)...)
+		if code != exitInput || !strings.Contains(errOut, tc.want) || out != "" {
+			t.Errorf("%v: exit %d, stderr %q, stdout %q; want exit 2 with %q and no events", tc.args, code, errOut, out, tc.want)
+		}
+	}
+	if code, out, errOut := runCLI(t, append([]string{"events", "--lat", "48.26", "--lon", "15.92", "--tz", "Europe/Vienna", "--elev", "500", "--kinds", "sunrise"}, day...)...); code != 0 || !strings.Contains(out, "500 m") {
+		t.Errorf("--elev with --lat/--lon: exit %d, stderr %q, stdout %q", code, errOut, out)
+	}
+}
+
 // Without --tz the zone in force at the place is used, and a note on stderr
 // names it (zones: the tz database; nautical zones at sea, common practice).
 func TestEventsZoneFromCoordinates(t *testing.T) {

@@ -446,14 +446,18 @@ func TestEnvOverrides(t *testing.T) {
 	if len(ps) != 3 {
 		t.Fatalf("want 3 problems, got:\n%v", err)
 	}
+	// The variable and the hint share one bracket.
 	for _, want := range []string{
-		`service.listen: nowhere: must be host:port (set by HELIOCAL_LISTEN)`,
-		`service.refresh_zone: Mars/Olympus: unknown time zone (set by HELIOCAL_REFRESH_ZONE)`,
-		`service.max_feed_bytes: 1MB: must be a whole number of bytes (set by HELIOCAL_MAX_FEED_BYTES)`,
+		`service.listen: nowhere: must be host:port (set by HELIOCAL_LISTEN; e.g. ":8080" or "127.0.0.1:8080")`,
+		`service.refresh_zone: Mars/Olympus: unknown time zone (set by HELIOCAL_REFRESH_ZONE; use an IANA name`,
+		`service.max_feed_bytes: 1MB: must be a whole number of bytes (set by HELIOCAL_MAX_FEED_BYTES; e.g. 1000000)`,
 	} {
 		if !strings.Contains(err.Error(), want) {
 			t.Errorf("error lacks %q:\n%v", want, err)
 		}
+	}
+	if strings.Contains(err.Error(), ") (") {
+		t.Errorf("two brackets in a row:\n%v", err)
 	}
 
 	// Parse and Load never read the process environment.

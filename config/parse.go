@@ -194,8 +194,12 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		problems = append(dups, rest...)
 	}
 	for i := range problems {
-		if name, ok := fromEnv[problems[i].Path]; ok {
-			problems[i].Msg += " (set by " + name + ")"
+		if name, ok := fromEnv[problems[i].Path]; ok { // one bracket: "(set by HELIOCAL_LISTEN; e.g. …)"
+			if problems[i].Hint == "" {
+				problems[i].Hint = "set by " + name
+			} else {
+				problems[i].Hint = "set by " + name + "; " + problems[i].Hint
+			}
 		}
 	}
 	if len(problems) > 0 {

@@ -22,7 +22,7 @@ func TestBaseURLCredentialsRefused(t *testing.T) {
 		_, err = ParseEnv(strings.NewReader(site), "yaml", func(k string) (string, bool) {
 			return base, k == "HELIOCAL_BASE_URL"
 		})
-		if ps := problemsOf(t, err); len(ps) != 1 || !strings.Contains(ps[0].Msg, "HELIOCAL_BASE_URL") {
+		if ps := problemsOf(t, err); len(ps) != 1 || !strings.Contains(ps[0].Error(), "(set by HELIOCAL_BASE_URL; ") {
 			t.Errorf("%s from the environment: %v", base, err)
 		}
 	}

@@ -84,8 +84,8 @@ func Interval(spec string, loc *time.Location, from time.Time) (time.Duration, e
 	if loc == nil {
 		loc = time.Local
 	}
-	a := s.Next(from.In(loc))
-	b := s.Next(a)
+	a := nextOnClocks(s, loc, from)
+	b := nextOnClocks(s, loc, a)
 	if a.IsZero() || b.IsZero() {
 		return 0, fmt.Errorf("schedule: cron expression %q never runs", spec)
 	}
@@ -133,7 +133,54 @@ type zoned struct {
 	loc *time.Location
 }
 
-func (z zoned) Next(t time.Time) time.Time { return z.Schedule.Next(t.In(z.loc)) }
+func (z zoned) Next(t time.Time) time.Time { return nextOnClocks(z.Schedule, z.loc, t) }
+
+// nextOnClocks is the first time of s after t, read on the clocks of loc. A
+// clock time the clocks skip when they go forward is moved by their jump
+// (03:15 where they go from 03:00 to 04:00, as in Europe/Helsinki in March,
+// is 04:15; midnight where they go from 00:00 to 01:00, as in
+// America/Santiago in September, is 01:00), where robfig/cron would leave
+// that day out; one they show twice when they go back runs once, at the
+// first. The rule is the one of the configuration's clock times.
+func nextOnClocks(s cron.Schedule, loc *time.Location, t time.Time) time.Time {
+	spec, ok := s.(*cron.SpecSchedule)
+	if !ok || spec.Location != time.Local { // @every (no clock times), or a zone of its own
+		return s.Next(t.In(loc))
+	}
+	lt := t.In(loc)
+	// The clock time written in UTC, whose days are all 24 h long: the
+	// schedule's times are found among them, then put on loc's clocks.
+	wall := time.Date(lt.Year(), lt.Month(), lt.Day(), lt.Hour(), lt.Minute(), lt.Second(), lt.Nanosecond(), time.UTC)
+	for range 3 { // a later clock time when the next is the second of two
+		if wall = spec.Next(wall); wall.IsZero() {
+			return wall
+		}
+		if at := onClocks(wall, loc); at.After(t) {
+			return at
+		}
+	}
+	return s.Next(lt)
+}
+
+// onClocks is the instant loc's clocks show wall (a clock time written in
+// UTC): the first of two when they show it twice, and, when they skip it,
+// the instant it would be on the clocks before the jump, so that it is
+// moved forward by the jump.
+func onClocks(wall time.Time, loc *time.Location) time.Time {
+	_, before := wall.Add(-24 * time.Hour).In(loc).Zone()
+	_, after := wall.Add(24 * time.Hour).In(loc).Zone()
+	shows := func(at time.Time) bool {
+		c := at.In(loc)
+		return time.Date(c.Year(), c.Month(), c.Day(), c.Hour(), c.Minute(), c.Second(), c.Nanosecond(), time.UTC).Equal(wall)
+	}
+	first := wall.Add(-time.Duration(before) * time.Second)
+	if second := wall.Add(-time.Duration(after) * time.Second); !shows(first) && shows(second) {
+		first = second
+	} else if shows(second) && second.Before(first) {
+		first = second
+	}
+	return first.In(loc)
+}
 
 // Reschedule replaces the expression and its zone (nil means time.Local)
 // without stopping the Scheduler: the next run is the new expression's next
@@ -219,7 +266,7 @@ func (s *Scheduler) Next() time.Time {
 	s.mu.Lock()
 	sched, loc := s.sched, s.loc
 	s.mu.Unlock()
-	return sched.Next(time.Now().In(loc))
+	return nextOnClocks(sched, loc, time.Now())
 }
 
 // Last returns when the latest run finished, and its error (zero time if

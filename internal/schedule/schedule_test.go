@@ -342,3 +342,107 @@ func TestReschedule(t *testing.T) {
 		}
 	})
 }
+
+// A nightly time the clocks skip still runs that night, moved by their jump,
+// and a time they show twice runs once. Chile's clocks went from 00:00 to
+// 01:00 on Sunday 15 October 2000 and back from 24:00 to 23:00 on Saturday 11
+// March 2000 (tz database, rule Chile: "Oct Sun>=9 4:00u", "Mar Sun>=9 3:00u"):
+// "@daily" in America/Santiago runs once on every date of 2000, on 15 October
+// at 01:00 −03 (04:00 UTC), where robfig/cron alone leaves the date out.
+func TestSkippedMidnightRuns(t *testing.T) {
+	santiago, err := time.LoadLocation("America/Santiago")
+	if err != nil {
+		t.Skip("tz database not available:", err)
+	}
+	synctest.Test(t, func(t *testing.T) {
+		var mu sync.Mutex
+		runs := map[string][]time.Time{} // by local date
+		s, err := New(func(ctx context.Context) error {
+			mu.Lock()
+			now := time.Now().In(santiago)
+			runs[now.Format(time.DateOnly)] = append(runs[now.Format(time.DateOnly)], now)
+			mu.Unlock()
+			return nil
+		}, Options{Spec: "@daily", Location: santiago})
+		if err != nil {
+			t.Fatal(err)
+		}
+		s.Start(t.Context())
+		time.Sleep(time.Date(2001, 1, 1, 12, 0, 0, 0, time.UTC).Sub(time.Now()))
+		synctest.Wait()
+		s.Stop(t.Context())
+		mu.Lock()
+		defer mu.Unlock()
+		for d := time.Date(2000, 1, 1, 0, 0, 0, 0, time.UTC); d.Year() == 2000; d = d.AddDate(0, 0, 1) {
+			if date := d.Format(time.DateOnly); len(runs[date]) != 1 {
+				t.Errorf("%s: %d runs %v, want 1", date, len(runs[date]), runs[date])
+			}
+		}
+		if got, want := runs["2000-10-15"], time.Date(2000, 10, 15, 4, 0, 0, 0, time.UTC); len(got) != 1 || !got[0].Equal(want) {
+			t.Errorf("15 October 2000: ran at %v, want %v (01:00 −03, moved by the jump)", got, want.In(santiago))
+		}
+	})
+}
+
+// The next run after a clock change, on both sides of it (tz database: in
+// the EU the clocks go forward at 01:00 UTC on the last Sunday of March and
+// back at 01:00 UTC on the last Sunday of October; in the US at 02:00 local
+// on the first Sunday of November; Chile went from 00:00 to 01:00 on 5
+// September 2027), and the same runs as robfig/cron on every other day.
+func TestNextOnClocks(t *testing.T) {
+	zone := func(name string) *time.Location {
+		loc, err := time.LoadLocation(name)
+		if err != nil {
+			t.Skip("tz database not available:", err)
+		}
+		return loc
+	}
+	helsinki, newYork, santiago := zone("Europe/Helsinki"), zone("America/New_York"), zone("America/Santiago")
+	for _, tc := range []struct {
+		spec string
+		loc  *time.Location
+		from time.Time
+		want []time.Time // the next runs, one after the other
+	}{
+		// 03:15 does not exist on 28 March 2027 in Helsinki (03:00 EET is
+		// 04:00 EEST): 04:15 EEST, 01:15 UTC.
+		{"15 3 * * *", helsinki, time.Date(2027, 3, 27, 12, 0, 0, 0, time.UTC), []time.Time{
+			time.Date(2027, 3, 28, 1, 15, 0, 0, time.UTC), time.Date(2027, 3, 29, 0, 15, 0, 0, time.UTC)}},
+		// 03:15 comes twice on 31 October 2027 (04:00 EEST is 03:00 EET):
+		// once, at the first (00:15 UTC).
+		{"15 3 * * *", helsinki, time.Date(2027, 10, 30, 12, 0, 0, 0, time.UTC), []time.Time{
+			time.Date(2027, 10, 31, 0, 15, 0, 0, time.UTC), time.Date(2027, 11, 1, 1, 15, 0, 0, time.UTC)}},
+		// 01:30 comes twice on 7 November 2027 in New York: once, in EDT.
+		{"30 1 * * *", newYork, time.Date(2027, 11, 6, 12, 0, 0, 0, time.UTC), []time.Time{
+			time.Date(2027, 11, 7, 5, 30, 0, 0, time.UTC), time.Date(2027, 11, 8, 6, 30, 0, 0, time.UTC)}},
+		// Midnight does not exist on 5 September 2027 in Santiago: 01:00 −03.
+		{"0 0 * * *", santiago, time.Date(2027, 9, 4, 12, 0, 0, 0, time.UTC), []time.Time{
+			time.Date(2027, 9, 5, 4, 0, 0, 0, time.UTC), time.Date(2027, 9, 6, 3, 0, 0, 0, time.UTC)}},
+	} {
+		s, err := parser.Parse(tc.spec)
+		if err != nil {
+			t.Fatal(err)
+		}
+		at := tc.from
+		for i, want := range tc.want {
+			if at = nextOnClocks(s, tc.loc, at); !at.Equal(want) || at.Location() != tc.loc {
+				t.Errorf("%q in %s after %v: run %d at %v, want %v", tc.spec, tc.loc, tc.from, i+1, at, want.In(tc.loc))
+			}
+		}
+	}
+	// Where no clock change is in the way, robfig/cron's own runs.
+	vienna := zone("Europe/Vienna")
+	for _, spec := range []string{"15 3 * * *", "0 */6 * * *", "0 4 * * 1", "@daily", "@every 90m"} {
+		s, err := parser.Parse(spec)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, loc := range []*time.Location{vienna, newYork, time.UTC} {
+			for at := time.Date(2027, 1, 1, 0, 7, 0, 0, time.UTC); at.Year() == 2027; at = at.Add(5 * time.Hour) {
+				if got, want := nextOnClocks(s, loc, at), s.Next(at.In(loc)); !got.Equal(want) {
+					t.Errorf("%q in %s after %v: %v, robfig/cron %v", spec, loc, at, got, want)
+				}
+			}
+		}
+	}
+}

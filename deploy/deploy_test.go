@@ -504,6 +504,21 @@ func TestNginx(t *testing.T) {
 	if !bytes.Contains(unit, []byte("--listen 127.0.0.1:8080")) {
 		t.Error("heliocal.service does not listen where heliocal-serve.conf sends requests")
 	}
+	static, err := os.ReadFile("nginx/heliocal.conf")
+	if err != nil {
+		t.Fatal(err)
+	}
+	// A 404 is not cached for the hour a feed is: a feed published later
+	// is found at once.
+	if caching := regexp.MustCompile(`(?m)^\s*add_header Cache-Control "public[^"]*".*$`).FindAll(static, -1); len(caching) == 0 {
+		t.Error("heliocal.conf sets no Cache-Control")
+	} else {
+		for _, line := range caching {
+			if bytes.Contains(line, []byte(" always")) {
+				t.Errorf("heliocal.conf: %s: \"always\" caches the 404 of a feed not yet published", bytes.TrimSpace(line))
+			}
+		}
+	}
 	for _, name := range []string{"heliocal.conf", "heliocal-serve.conf"} {
 		site, err := os.ReadFile(filepath.Join("nginx", name))
 		if err != nil {

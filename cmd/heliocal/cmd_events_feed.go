@@ -363,6 +363,12 @@ func noteText(n *feed.Note) string {
 		return feed.NotReachedText(*n)
 	}
 	if n.Kind.Name != config.KindLighting {
+		switch n.Kind.Name {
+		case "golden-hour", "blue-hour", config.KindSunBand:
+			if n.State == astro.Crosses { // the band's light goes on: as the feed's "No golden hour begins today"
+				return "no span begins on this date: the one that began before lasts into it"
+			}
+		}
 		return stateText(n.State)
 	}
 	if n.Lamp > 0 {

@@ -213,3 +213,19 @@ feeds:
 		t.Errorf("CSV: column open at %d, %d rows open, want 1:\n%s", col, opens, out)
 	}
 }
+
+// A date on which no span of a band begins, the one of the date before
+// lasting into it, is not "no event" in the table: the band's light goes
+// on, as the feed's note says. At 78.2° N, 15.6° E on 29 April 2027 the Sun
+// stays between −3° and +3° from the 28th on (the feed package's
+// TestSunBandNotesInTheBandsWords, after PyEphem 4.1).
+func TestTableBandSpanLastsIntoDate(t *testing.T) {
+	code, table, errOut := runCLI(t, "events", "--lat", "78.2", "--lon", "15.6", "--tz", "Arctic/Longyearbyen",
+		"--from", "2027-04-29", "--to", "2027-04-29", "--kinds", "sun-band:-3..3")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	if !strings.Contains(table, "sun-band:-3..3  no span begins on this date: the one that began before lasts into it") || strings.Contains(table, "no event") {
+		t.Errorf("the table:\n%s", table)
+	}
+}

@@ -17,7 +17,8 @@ import (
 // before it (a note: next year's wedding dates are listed ahead). shown are
 // the kinds entries as check's table writes them, listed the dates each
 // lists (config.ListedDates). One line per date and side, naming every
-// entry that lists the date.
+// entry that lists the date; a date the entry's own months or weekdays
+// leave out is not named here: datesFilteredOut says it is never published.
 func datesOutsideWindow(f *config.Feed, shown []string, listed [][]time.Time, cal *feed.Calendar) (warnings, notes []string) {
 	first, last := cal.FirstDate, cal.LastDate
 	var order []time.Time             // the dates outside, in the order first named
@@ -32,8 +33,11 @@ func datesOutsideWindow(f *config.Feed, shown []string, listed [][]time.Time, ca
 		named[d] = append(named[d], entry)
 	}
 	for i, dates := range listed {
+		kept := config.NewDateFilter(f.Kinds[i].Weekdays, f.Kinds[i].Months, nil)
 		for _, d := range dates {
-			add(shown[i], d)
+			if kept.Allows(d) {
+				add(shown[i], d)
+			}
 		}
 	}
 	for _, p := range f.Plans {

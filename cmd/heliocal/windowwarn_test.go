@@ -131,3 +131,31 @@ feeds:
 		t.Errorf("warnings:\n%s\nwant:\n%s", strings.Join(r.Warnings, "\n"), strings.Join(want, "\n"))
 	}
 }
+
+// A listed date that the entry's own weekdays leave out is only that
+// warning, never also "before the window's start" or a note that it "will
+// be published" once the window reaches it: 13 June 2026 and 17 June 2028
+// are Saturdays (timeanddate.com's calendars), outside the window
+// 2027-01-05..2028-01-15 of a feed at Zurich checked at windowNow.
+func TestDatesFilteredOutNotNotedOutsideWindow(t *testing.T) {
+	r := checkReportOf(t, `sites:
+  - {id: venue, latitude: 47.5, longitude: 9.7, timezone: Europe/Zurich}
+feeds:
+  - id: weddings
+    site: venue
+    days_back: 10
+    kinds:
+      - {kind: sunset, dates: [2026-06-13, 2028-06-17], weekdays: [sun]}
+      - {kind: blue-hour, dates: [2028-06-17]}
+`, windowNow)
+	want := []string{
+		`feed "weddings": sunset: 2026-06-13 is a Saturday, not in its weekdays (sun): it will never be published`,
+		`feed "weddings": sunset: 2028-06-17 is a Saturday, not in its weekdays (sun): it will never be published`,
+	}
+	if !slices.Equal(r.Warnings, want) {
+		t.Errorf("warnings:\n%s\nwant:\n%s", strings.Join(r.Warnings, "\n"), strings.Join(want, "\n"))
+	}
+	if len(r.Notes) != 1 || !strings.HasPrefix(r.Notes[0], `feed "weddings": blue-hour: 2028-06-17 is after the window's end 2028-01-15 (days_ahead: 365)`) {
+		t.Errorf("notes:\n%s\nwant one, of blue-hour alone", strings.Join(r.Notes, "\n"))
+	}
+}

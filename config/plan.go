@@ -108,6 +108,21 @@ func (f DateFilter) Allows(d time.Time) bool {
 	return ok
 }
 
+// LeftOutBy says which list leaves the civil date d out: "months",
+// "weekdays" or "dates" (the first that does, in that order), or "" when
+// the filter keeps d.
+func (f DateFilter) LeftOutBy(d time.Time) string {
+	switch {
+	case f.months != 0 && f.months&(1<<d.Month()) == 0:
+		return "months"
+	case f.weekdays != 0 && f.weekdays&(1<<d.Weekday()) == 0:
+		return "weekdays"
+	case !f.Allows(d):
+		return "dates"
+	}
+	return ""
+}
+
 // dayNumber is the number of days from 1970-01-01 to the civil date of d
 // (its year, month and day, whatever its location).
 func dayNumber(d time.Time) int64 {

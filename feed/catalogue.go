@@ -1348,13 +1348,17 @@ func keepEvents(evs []Event, notes []Note, spec config.KindSpec, loc *time.Locat
 // length never reaches 15 h here"), and a date of the stretch the filter
 // keeps would otherwise have no entry of the kind and no note either. A
 // note of a stretch f keeps no date of stays where it is, for f to leave
-// out.
+// out. A photoperiod note whose longest (or shortest) day f leaves out
+// says so (ExtremeLeftOut): the dates it is on do not have that length.
 func moveStretchNotes(notes []Note, f config.DateFilter, last time.Time) {
 	if f.IsZero() {
 		return
 	}
 	for i := range notes {
 		n := &notes[i]
+		if n.Kind.Name == "photoperiod" && !n.ExtremeDate.IsZero() {
+			n.ExtremeLeftOut = f.LeftOutBy(n.ExtremeDate)
+		}
 		if f.Allows(n.Date) {
 			continue
 		}

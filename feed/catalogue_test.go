@@ -769,6 +769,39 @@ func TestPhotoperiodNeverReached(t *testing.T) {
 	}
 }
 
+// A photoperiod note on the dates a filter keeps says when the longest (or
+// shortest) day it names lies outside them: at 9.9° N the longest day is
+// 12 h 42 min on 21 June (the values of TestPhotoperiodNeverReached), a
+// Monday in 2027, which months jan..mar, weekends or a list of March dates
+// leave out, and months may..jul keep. In the feed and in the events of
+// the kinds entry alike.
+func TestPhotoperiodNoteOutsideKeptDates(t *testing.T) {
+	s := site(t, "tropic", 9.9, -84.1, "America/Costa_Rica")
+	sk := sky(t, "2027-01-01", "2027-12-31")
+	const longest = "Day length never reaches 14 h here (longest 12 h 42 min, 21 June"
+	for _, tc := range []struct {
+		name                    string
+		weekdays, months, dates []string
+		want                    string
+	}{
+		{"first quarter", nil, []string{"jan", "feb", "mar"}, nil, longest + ", outside the months this feed keeps)"},
+		{"summer", nil, []string{"may", "jun", "jul"}, nil, longest + ")"},
+		{"weekends", []string{"sat", "sun"}, nil, nil, longest + ", a day of the week this feed leaves out)"},
+		{"dates", nil, nil, []string{"2027-03-01", "2027-03-08"}, longest + ", not among the dates this feed keeps)"},
+		{"none", nil, nil, nil, longest + ")"},
+	} {
+		spec := config.KindSpec{Kind: mustKinds(t, "photoperiod:14h")[0], Weekdays: tc.weekdays, Months: tc.months, Dates: tc.dates}
+		entries, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date("2027-01-01"), date("2027-12-31"))
+		if err != nil || len(entries) != 1 || entries[0].Title != tc.want {
+			t.Errorf("%s: entries %+v, %v; want one titled %q", tc.name, entries, err, tc.want)
+		}
+		_, notes, err := sk.EventsFor(context.Background(), PlaceOf(s), []config.KindSpec{spec}, date("2027-01-01"), date("2027-12-31"))
+		if err != nil || len(notes) != 1 || NotReachedText(notes[0]) != tc.want {
+			t.Errorf("%s: notes %+v, %v; want one saying %q", tc.name, notes, err, tc.want)
+		}
+	}
+}
+
 // A site with a skyline (the demo's invented valley: a 25° peak due south):
 // on the winter solstice one sunrise (first appearance) and one sunset (last
 // disappearance), the Sun hidden behind the peak around noon as a

@@ -143,6 +143,10 @@ type Note struct {
 	DayLength   time.Duration
 	ExtremeDate time.Time
 	Last        time.Time
+	// ExtremeLeftOut is, when the kinds entry's filter leaves ExtremeDate
+	// out, the list that does: "months", "weekdays" or "dates"
+	// (config.DateFilter.LeftOutBy); the note then says so.
+	ExtremeLeftOut string
 	// DirectSun: DayLength is the direct Sun over the site's skyline.
 	DirectSun bool
 	// Hidden: a sunrise or sunset note of a date the Sun stays below the

@@ -1379,7 +1379,16 @@ func NotReachedText(n Note) string {
 	if length == hm(n.Kind.DayLength) {
 		length = Length(n.DayLength, time.Second)
 	}
-	return fmt.Sprintf("%s %s (%s %s, %s)", what, when, extreme, length, n.ExtremeDate.Format("2 January"))
+	out := ""
+	switch n.ExtremeLeftOut {
+	case "months":
+		out = ", outside the months this feed keeps"
+	case "weekdays":
+		out = ", a day of the week this feed leaves out"
+	case "dates":
+		out = ", not among the dates this feed keeps"
+	}
+	return fmt.Sprintf("%s %s (%s %s, %s%s)", what, when, extreme, length, n.ExtremeDate.Format("2 January"), out)
 }
 
 // noEventToday gives the title and the explanation of a date on which a

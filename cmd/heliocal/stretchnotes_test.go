@@ -51,11 +51,13 @@ func feedNotes(t *testing.T, months, from, to string) []noteOf {
 // A stretch's note whose date a kinds entry's months leave out goes on the
 // first date of the stretch they keep: the photoperiod's, on the window's
 // first date, and lighting's "No lamps needed", on 24 November, both on 1
-// January; lighting's words stay those of the whole stretch.
+// January; lighting's words stay those of the whole stretch, and the
+// photoperiod's say that its longest day (22 December) is not in the
+// months it keeps.
 func TestStretchNoteMovedToKeptDate(t *testing.T) {
 	got := feedNotes(t, "jan, feb", "2026-11-01", "2027-03-01")
 	want := []noteOf{
-		{"2027-01-01", "photoperiod:15h", "Day length stays below 15 h from 1 November to 1 March 2027 (longest 14 h 20 min, 22 December)"},
+		{"2027-01-01", "photoperiod:15h", "Day length stays below 15 h from 1 November to 1 March 2027 (longest 14 h 20 min, 22 December, outside the months this feed keeps)"},
 		{"2027-01-01", "lighting:14h", "No lamps needed until 20 Jan: the natural day is ≥ 14 h"},
 	}
 	if !slices.Equal(got, want) {
@@ -73,15 +75,15 @@ func TestStretchNoteAcrossChunks(t *testing.T) {
 		want   []noteOf
 	}{
 		{"jan, feb", []noteOf{
-			{"2027-01-01", "photoperiod:15h", "Day length never reaches 15 h here (longest 14 h 20 min, 22 December)"},
+			{"2027-01-01", "photoperiod:15h", "Day length never reaches 15 h here (longest 14 h 20 min, 22 December, outside the months this feed keeps)"},
 			{"2027-01-01", "lighting:14h", "No lamps needed until 20 Jan: the natural day is ≥ 14 h"},
 		}},
 		{"dec, jan", []noteOf{
 			{"2026-12-01", "lighting:14h", "No lamps needed until 20 Jan: the natural day is ≥ 14 h"},
-			{"2027-01-01", "photoperiod:15h", "Day length never reaches 15 h here (longest 14 h 20 min, 22 December)"},
+			{"2027-01-01", "photoperiod:15h", "Day length never reaches 15 h here (longest 14 h 20 min, 22 December, outside the months this feed keeps)"},
 		}},
 		{"mar", []noteOf{
-			{"2027-01-01", "photoperiod:15h", "Day length never reaches 15 h here (longest 14 h 20 min, 22 December)"},
+			{"2027-01-01", "photoperiod:15h", "Day length never reaches 15 h here (longest 14 h 20 min, 22 December, outside the months this feed keeps)"},
 		}},
 	} {
 		if got := feedNotes(t, c.months, "2026-07-01", "2027-06-30"); !slices.Equal(got, c.want) {
@@ -122,7 +124,7 @@ func TestStretchNoteMovedInFeed(t *testing.T) {
 		}
 	}
 	want := []string{
-		`20270101 Day length stays below 15 h from 1 November to 1 March 2027 (longest 14 h 20 min\, 22 December)`,
+		`20270101 Day length stays below 15 h from 1 November to 1 March 2027 (longest 14 h 20 min\, 22 December\, outside the months this feed keeps)`,
 		`20270101 No lamps needed until 20 Jan: the natural day is ≥ 14 h`,
 	}
 	if !slices.Equal(notes, want) {

@@ -270,6 +270,16 @@ func (d *dupFinder) toml(data []byte) {
 			if parent != "" {
 				path = parent + "." + path
 			}
+			if first, written := d.seen[path]; written && !d.underDuplicate(parent) || d.dups[path] {
+				// kinds = [...] and then [[feeds.kinds]]: the tables are
+				// dropped, the list kept
+				if !d.dups[path] {
+					d.dups[path] = true
+					d.problems = append(d.problems, listThenTables(data, path, first, tableName(e.Key()), line))
+				}
+				d.dropLines = append(d.dropLines, [2]int{line, 0})
+				open = len(d.dropLines) - 1
+			}
 			tables[path]++
 			current = index(path, tables[path]-1)
 		case unstable.KeyValue:
@@ -281,6 +291,35 @@ func (d *dupFinder) toml(data []byte) {
 			value(e.Value(), kp)
 		}
 	}
+}
+
+// tableName is the name of a TOML table header as written, "feeds.kinds".
+func tableName(it unstable.Iterator) string {
+	var parts []string
+	for it.Next() {
+		parts = append(parts, string(it.Node().Data))
+	}
+	return strings.Join(parts, ".")
+}
+
+// listThenTables is the problem of a key written as a value (first, e.g.
+// kinds = ["sunrise"]) and then as an array of tables ([[feeds.kinds]] at
+// line), which TOML refuses without saying where: it names both lines and
+// shows the two ways of writing the list.
+func listThenTables(data []byte, path string, first keyPlace, name string, line int) FieldError {
+	written := first.written
+	if lines := bytes.Split(data, []byte("\n")); first.line >= 1 && first.line <= len(lines) {
+		written = string(bytes.TrimSpace(lines[first.line-1])) // kinds = ["sunrise"]
+		if strings.Count(written, "[") > strings.Count(written, "]") {
+			written += " …]" // a list over several lines
+		}
+	}
+	msg := fmt.Sprintf("written twice: as %s at line %d and as [[%s]] at line %d", written, first.line, name, line)
+	hint := fmt.Sprintf("write all of it one way: in the list, or each entry as a table [[%s]]", name)
+	if strings.HasSuffix(path, ".kinds") {
+		hint = fmt.Sprintf(`write the kinds one way: all in the list, kinds = ["sunrise", "sunset"], or each as a table, [[%s]] with kind = "sunrise" and its options on the lines below it`, name)
+	}
+	return FieldError{Path: path, Msg: msg, Hint: hint}
 }
 
 // tomlWithoutDuplicates blanks the lines of each repeated key = value and

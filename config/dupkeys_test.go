@@ -150,3 +150,56 @@ func TestReadConfigFromDocument(t *testing.T) {
 		t.Errorf("every input parsed: the test does not reach the text's own error")
 	}
 }
+
+// A TOML feed whose kinds are written as a list and then as [[feeds.kinds]]
+// tables, which the TOML decoder refuses without a line ("key value already
+// exists as a kinds, but should be an array table"), is told where each is
+// and how to write the kinds one way, as YAML names both places of a key
+// written twice; the list is kept, the tables set aside, and the rest of
+// the document checked as usual (the second feed's unknown site).
+func TestTOMLKindsListThenTables(t *testing.T) {
+	doc := `[[sites]]
+id = "a"
+latitude = 47.5
+longitude = 9.7
+timezone = "Europe/Zurich"
+
+[[feeds]]
+id = "f"
+site = "a"
+kinds = ["sunrise", "sunset"]
+
+[[feeds.kinds]]
+kind = "civil-dawn"
+offset = "-30m"
+
+[[feeds.kinds]]
+kind = "civil-dusk"
+
+[[feeds]]
+id = "g"
+site = "nowhere"
+kinds = [
+  "sunrise",
+]
+[[feeds.kinds]]
+kind = "sunset"
+`
+	_, err := Parse(strings.NewReader(doc), "toml")
+	ps := problemsOf(t, err)
+	want := []string{
+		`feeds[0].kinds: written twice: as kinds = ["sunrise", "sunset"] at line 10 and as [[feeds.kinds]] at line 12 (write the kinds one way: all in the list, kinds = ["sunrise", "sunset"], or each as a table, [[feeds.kinds]] with kind = "sunrise" and its options on the lines below it)`,
+		`feeds[1].kinds: written twice: as kinds = [ …] at line 22 and as [[feeds.kinds]] at line 25 (write the kinds one way: all in the list, kinds = ["sunrise", "sunset"], or each as a table, [[feeds.kinds]] with kind = "sunrise" and its options on the lines below it)`,
+	}
+	var got []string
+	site := false
+	for _, p := range ps {
+		if strings.HasSuffix(p.Path, ".kinds") {
+			got = append(got, p.Error())
+		}
+		site = site || p.Path == "feeds[1].site"
+	}
+	if strings.Join(got, "\n") != strings.Join(want, "\n") || !site {
+		t.Errorf("problems:\n%v\nwant among them:\n%s\nand feeds[1].site", err, strings.Join(want, "\n"))
+	}
+}

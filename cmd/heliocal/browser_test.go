@@ -507,3 +507,80 @@ func TestBrowserContrast(t *testing.T) {
 		}
 	}
 }
+
+// fieldError reads what the page shows about a refused input: the inputs
+// marked invalid (with what describes them), the message under an input
+// and how far below that input it starts, in CSS pixels.
+const fieldError = `(() => {
+  const err = document.getElementById("field-error");
+  const bad = [...document.querySelectorAll("[aria-invalid=true]")];
+  const gap = bad.length && !err.hidden ? err.getBoundingClientRect().top - bad[0].getBoundingClientRect().bottom : -1;
+  return {invalid: bad.map(e => e.id + " " + e.getAttribute("aria-describedby")), text: err.hidden ? "" : err.textContent, gap};
+})()`
+
+// On a 390 px phone the result card is screens below the place: a refused
+// input is marked invalid and its message shown under it, whether the page
+// refuses it (a latitude of 95°, over the −90..90 the form's help gives) or
+// the server does (a time zone that is not in the IANA database, tz=Europe/Viena
+// instead of Europe/Vienna); the mark goes once the input is corrected.
+func TestBrowserBuilderFieldError(t *testing.T) {
+	ts := builderServer(t)
+	ctx := browser(t)
+	type state struct {
+		Invalid []string
+		Text    string
+		Gap     float64
+	}
+	read := func(wait string) state {
+		t.Helper()
+		if err := chromedp.Do(ctx,
+			chromedp.Evaluate[chromedp.Void](`document.getElementById("builder").dispatchEvent(new Event("input"))`),
+			chromedp.Poll[chromedp.Void](wait),
+		); err != nil {
+			t.Fatalf("waiting for %s: %v", wait, err)
+		}
+		got, err := chromedp.Run(ctx, chromedp.Evaluate[map[string]any](fieldError))
+		if err != nil {
+			t.Fatal(err)
+		}
+		var s state
+		b, _ := json.Marshal(got)
+		if err := json.Unmarshal(b, &s); err != nil {
+			t.Fatal(err)
+		}
+		return s
+	}
+	id := func(s string) chromedp.ID { return chromedp.ID(s) }
+	if err := chromedp.Do(ctx,
+		chromedp.EmulateViewport(390, 844),
+		chromedp.Navigate(ts.URL+"/"),
+		chromedp.WaitVisible(id("lat")),
+		chromedp.SendKeys(id("lat"), "95"),
+		chromedp.SendKeys(id("lon"), "10"),
+	); err != nil {
+		t.Fatal(err)
+	}
+	s := read(`document.getElementById("lat").getAttribute("aria-invalid") === "true"`)
+	if !slices.Equal(s.Invalid, []string{"lat coord-help field-error"}) || !strings.HasPrefix(s.Text, "Latitude: ") || s.Gap < 0 || s.Gap > 120 {
+		t.Errorf("latitude 95: %+v; want lat alone invalid, described by the message shown within 120 px under it", s)
+	}
+
+	if err := chromedp.Do(ctx, chromedp.SetValue(id("lat"), "47.05"), chromedp.SendKeys(id("tz"), "Europe/Viena")); err != nil {
+		t.Fatal(err)
+	}
+	s = read(`document.getElementById("tz").getAttribute("aria-invalid") === "true"`)
+	if !slices.Equal(s.Invalid, []string{"tz tz-help field-error"}) || !strings.Contains(s.Text, `tz="Europe/Viena"`) || !strings.Contains(s.Text, "Europe/Vienna") || s.Gap < 0 || s.Gap > 120 {
+		t.Errorf("time zone Europe/Viena: %+v; want tz alone invalid, the server's message (with its suggestion) within 120 px under it", s)
+	}
+
+	if err := chromedp.Do(ctx, chromedp.SetValue(id("tz"), "Europe/Vienna")); err != nil {
+		t.Fatal(err)
+	}
+	s = read(`document.querySelector("[aria-invalid]") === null && document.getElementById("message").hidden`)
+	if len(s.Invalid) != 0 || s.Text != "" {
+		t.Errorf("corrected: %+v; want no input marked and no message", s)
+	}
+	if d, err := chromedp.Run(ctx, chromedp.AttributeValue(id("tz"), "aria-describedby")); err != nil || d.Value != "tz-help" {
+		t.Errorf("corrected: tz described by %q (%v), want tz-help again", d.Value, err)
+	}
+}

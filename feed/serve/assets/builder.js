@@ -34,8 +34,8 @@ const $ = (id) => document.getElementById(id);
 function query(withStart) {
   const lat = parseAngle($("lat").value, "N", "S");
   const lon = parseAngle($("lon").value, "E", "W");
-  if (lat === null || lat < -90 || lat > 90) return { error: "Latitude: enter decimal degrees (−90 to 90) or degrees, minutes, seconds with N or S." };
-  if (lon === null || lon < -180 || lon > 180) return { error: "Longitude: enter decimal degrees (−180 to 180) or degrees, minutes, seconds with E or W." };
+  if (lat === null || lat < -90 || lat > 90) return { error: "Latitude: enter decimal degrees (−90 to 90) or degrees, minutes, seconds with N or S.", field: "lat" };
+  if (lon === null || lon < -180 || lon > 180) return { error: "Longitude: enter decimal degrees (−180 to 180) or degrees, minutes, seconds with E or W.", field: "lon" };
   const p = new URLSearchParams();
   p.set("lat", lat.toFixed(4));
   p.set("lon", lon.toFixed(4));
@@ -58,11 +58,35 @@ function query(withStart) {
   return { params: p };
 }
 
-function show(msg) {
+// The inputs whose server parameter has the same name: a refused query
+// ("serve: parameter tz=…") is shown at its input as well.
+const paramInputs = ["lat", "lon", "elev", "horizon", "name", "tz", "alarm", "lighting", "start"];
+
+// show writes msg in the result (announced) and, when it is about an input
+// that holds something, under that input too, which it marks invalid: on a
+// phone the result is screens below the place.
+function show(msg, field) {
   const m = $("message");
   m.textContent = msg;
   m.hidden = !msg;
   $("result").classList.toggle("stale", !!msg);
+  const err = $("field-error");
+  for (const el of document.querySelectorAll("[aria-invalid]")) {
+    el.removeAttribute("aria-invalid");
+    const ids = (el.getAttribute("aria-describedby") || "").split(" ").filter((id) => id && id !== "field-error");
+    if (ids.length) el.setAttribute("aria-describedby", ids.join(" "));
+    else el.removeAttribute("aria-describedby");
+  }
+  const input = msg && field ? $(field) : null;
+  if (!input || input.value.trim() === "") {
+    err.hidden = true;
+    return;
+  }
+  input.setAttribute("aria-invalid", "true");
+  input.setAttribute("aria-describedby", ((input.getAttribute("aria-describedby") || "") + " field-error").trim());
+  err.textContent = msg;
+  (input.closest(".grid") || input.closest(".field")).after(err);
+  err.hidden = false;
 }
 
 function render(res) {
@@ -116,7 +140,7 @@ function update() {
   timer = setTimeout(async () => {
     const q = query(true);
     if (q.error) {
-      if ($("lat").value || $("lon").value) show(q.error);
+      if ($("lat").value || $("lon").value) show(q.error, q.field);
       return;
     }
     const mine = ++seq;
@@ -125,7 +149,8 @@ function update() {
       const text = await r.text();
       if (mine !== seq) return;
       if (!r.ok) {
-        show(text.trim().replace(/^serve: /, ""));
+        const named = text.match(/^serve: parameter (\w+)=/);
+        show(text.trim().replace(/^serve: /, ""), named && paramInputs.includes(named[1]) ? named[1] : "");
         return;
       }
       show("");

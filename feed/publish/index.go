@@ -248,6 +248,8 @@ h2{font-size:1.25rem;margin:2rem 0 .2rem;border-top:1px solid #ddd;padding-top:1
 table{border-collapse:collapse;width:100%}
 th,td{text-align:left;padding:.35rem .5rem;border-bottom:1px solid #e4e2dc;vertical-align:top;overflow-wrap:anywhere}
 td.num,th.num{text-align:right;white-space:nowrap}
+th:last-child{width:10em}
+.unit{display:none}
 code{font-size:.85em;word-break:break-all}
 figure{margin:0 0 1rem}
 figcaption{font-size:.9rem;color:#444}
@@ -261,16 +263,17 @@ svg .yl{text-anchor:end}
 .set{fill:none;stroke:#5b4bb7;stroke-width:2}
 .lamp{fill:none;stroke:#1f9e89;stroke-opacity:.45}
 .dark{fill:none;stroke:#4a5a78;stroke-opacity:.35}
-.thr{stroke:#2e8b3e;stroke-width:1;stroke-dasharray:3 2}
-svg .tl{fill:#2e8b3e}
+.thr{stroke:#287a36;stroke-width:1;stroke-dasharray:3 2}
+svg .tl{fill:#287a36;stroke:#fbfaf6;stroke-width:3px;stroke-linejoin:round;paint-order:stroke}
 .mark{stroke:#c0392b;stroke-width:1}
 .today{stroke:currentColor;stroke-width:1.5}.past{fill:currentColor;fill-opacity:.08;stroke:none}
 .moon{stroke:currentColor;stroke-width:1;fill:none}
 .moon.full{fill:#e8c547}
 .key{display:inline-block;width:1.4em;height:0;vertical-align:.3em;margin:0 .25em 0 .6em;border-top:3px solid}
-.key.rise{border-color:#c86a14}.key.set{border-color:#5b4bb7}.key.lamp{border-top-width:.8em;vertical-align:-.1em;border-color:#1f9e8973}.key.dark{border-top-width:.8em;vertical-align:-.1em;border-color:#4a5a7859}.key.thr{border-top:2px dashed #2e8b3e}.key.mark{border-top:2px solid #c0392b}.key.today{border-top:2px solid currentColor}
-@media (max-width:40rem){body{padding:.6rem}figure{padding-left:1rem}svg{overflow:visible}svg text{font-size:17px}svg .ml,svg .tl{display:none}table,tbody,tr,td{display:block}thead{display:none}tr{border-bottom:1px solid #e4e2dc;padding:.4rem 0}td{border:0;padding:.1rem 0}td.num{display:inline-block;margin-right:1rem}td.num:nth-of-type(2)::after{content:" events"}}
-@media (prefers-color-scheme:dark){body{color:#e6e4de;background:#16181f}.place{color:#b4b2ac}.caution{background:#2b2517}a{color:#8fb8ff}th,td,tr{border-bottom-color:#333846}figcaption{color:#c4c2bc}.rise,.key.rise{stroke:#f0a04b;border-color:#f0a04b}.set,.key.set{stroke:#a99bff;border-color:#a99bff}.thr{stroke:#6cc47a}svg .tl{fill:#6cc47a}.mark{stroke:#ff7a6b}.dark{stroke:#9fb0d0}}
+.key.rise{border-color:#c86a14}.key.set{border-color:#5b4bb7}.key.lamp{border-top-width:.8em;vertical-align:-.1em;border-color:#1f9e8973}.key.dark{border-top-width:.8em;vertical-align:-.1em;border-color:#4a5a7859}.key.thr{border-top:2px dashed #287a36}.key.mark{border-top:2px solid #c0392b}.key.today{border-top:2px solid currentColor}
+@media (max-width:40rem){body{padding:.6rem}figure{padding-left:1rem}svg{overflow:visible}svg text{font-size:17px}svg .ml,svg .tl{display:none}table,tbody,tr,td{display:block}thead{display:none}tr{border-bottom:1px solid #e4e2dc;padding:.4rem 0}td{border:0;padding:.1rem 0}td.num{display:inline-block;margin-right:1rem}.unit{display:inline}}
+@media screen and (prefers-color-scheme:dark){body{color:#e6e4de;background:#16181f}.place{color:#b4b2ac}.caution{background:#2b2517}a{color:#8fb8ff}th,td,tr{border-bottom-color:#333846}figcaption{color:#c4c2bc}.rise,.key.rise{stroke:#f0a04b;border-color:#f0a04b}.set,.key.set{stroke:#a99bff;border-color:#a99bff}.thr{stroke:#6cc47a}svg .tl{fill:#6cc47a;stroke:#16181f}.mark{stroke:#ff7a6b}.dark{stroke:#9fb0d0}}
+@media print{h2,.place{break-after:avoid}figure,tr{break-inside:avoid}}
 </style>
 </head>
 <body>
@@ -281,6 +284,7 @@ svg .tl{fill:#2e8b3e}
 {{if .Relative}}Subscribe by adding a feed's address (the link below, made absolute with this page's address) to your calendar app as a subscription.{{else}}The webcal link subscribes in your calendar app; the https address can be pasted into any app's "subscribe by URL".{{end}}
 Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{.}}{{end}}</p>
 </header>
+<main>
 <aside class="caution" role="note"><strong>Caution.</strong> {{.Caution}}</aside>
 {{range .Sites}}
 <section id="site-{{.ID}}">
@@ -314,11 +318,12 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{
 {{end}}<table>
 <thead><tr><th>Feed</th><th class="num">Events</th><th class="num">Size</th><th>Subscribe</th></tr></thead>
 <tbody>
-{{range .Feeds}}<tr id="feed-{{.ID}}"><td><strong>{{.Title}}</strong>{{with .Description}}<br/>{{.}}{{end}}<br/><code>{{.ID}}</code></td><td class="num">{{.Events}}</td><td class="num">{{.Size}}</td><td>{{if .Webcal}}<a href="{{.Webcal}}">webcal</a> · {{end}}<a href="{{.HTTPS}}">{{if .Webcal}}https{{else}}{{.File}}{{end}}</a>{{if .Webcal}}<br/><code>{{.HTTPS}}</code>{{end}}</td></tr>
+{{range .Feeds}}<tr id="feed-{{.ID}}"><td><strong>{{.Title}}</strong>{{with .Description}}<br/>{{.}}{{end}}<br/><code>{{.ID}}</code></td><td class="num">{{.Events}}<span class="unit"> event{{if ne .Events "1"}}s{{end}}</span></td><td class="num">{{.Size}}</td><td>{{if .Webcal}}<a href="{{.Webcal}}">webcal</a> · {{end}}<a href="{{.HTTPS}}">{{if .Webcal}}https{{else}}{{.File}}{{end}}</a>{{if .Webcal}}<br/><code>{{.HTTPS}}</code>{{end}}</td></tr>
 {{end}}</tbody>
 </table>
 </section>
 {{end}}
+</main>
 <footer>{{with .Contact}}<p>{{.}}</p>{{end}}<p>Published by heliocal.</p></footer>
 </body>
 </html>

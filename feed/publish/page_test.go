@@ -64,3 +64,36 @@ func TestIndexDefaultTitleAndCount(t *testing.T) {
 		t.Error("a feed of one event: the index does not say \"1 event\"")
 	}
 }
+
+// The page has one main landmark holding the caution and every site (the
+// heading and the footer outside it), and each feed's count carries its
+// unit, shown where the table's header is not (a phone): "1 event",
+// "2 events".
+func TestIndexMainAndEventUnit(t *testing.T) {
+	cals := testCalendars(t, "")
+	one := *cals[0]
+	one.Entries = one.Entries[:1]
+	two := *cals[1]
+	two.Entries = two.Entries[:2]
+	doc := parseStrict(t, renderIndexFor(t, testOptions(), []*feed.Calendar{&one, &two}))
+	counts := map[string]string{}
+	for _, tr := range doc.all("tr") {
+		if tds := tr.all("td"); len(tds) > 1 {
+			counts[tr.Attr["id"]] = strings.TrimSpace(tds[1].text())
+		}
+	}
+	want := map[string]string{"feed-" + one.ID: "1 event", "feed-" + two.ID: "2 events"}
+	for id, w := range want {
+		if counts[id] != w {
+			t.Errorf("row %s counts %q, want %q (all: %v)", id, counts[id], w, counts)
+		}
+	}
+	mains := doc.all("main")
+	if len(mains) != 1 {
+		t.Fatalf("%d main elements, want 1", len(mains))
+	}
+	if len(mains[0].all("section")) != len(doc.all("section")) || len(mains[0].all("aside")) != 1 || len(mains[0].all("h1")) != 0 || len(mains[0].all("footer")) != 0 {
+		t.Errorf("main holds %d of %d sections, %d asides, %d h1, %d footers; want every section, the caution, no heading or footer",
+			len(mains[0].all("section")), len(doc.all("section")), len(mains[0].all("aside")), len(mains[0].all("h1")), len(mains[0].all("footer")))
+	}
+}

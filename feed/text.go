@@ -444,8 +444,9 @@ func newSiteInfo(s *config.Site) *siteInfo {
 	return &siteInfo{Site: s, where: where(s), zone: newZoneCache(s.TimeZone.Location), flatRise: flatRiseAltitude(PlaceOf(s).Observer)}
 }
 
-// refractionText names the refraction rise and set are computed with.
-func refractionText(o astro.Observer) string {
+// RefractionText names the refraction rise and set are computed with:
+// "standard refraction", or "refraction for 1030 hPa and −20 °C".
+func RefractionText(o astro.Observer) string {
 	if o.Pressure == 0 {
 		return "standard refraction"
 	}
@@ -750,7 +751,7 @@ func kindMeaning(s *config.Site, kind string) string {
 // "Moon") at site s, kind its kind's name: "Sunrise: the Sun's upper limb
 // appears on the horizon (standard refraction)."
 func limbMeaning(s *config.Site, kind, body string, rising bool) string {
-	verb, refr := "disappears below the horizon", refractionText(PlaceOf(s).Observer)
+	verb, refr := "disappears below the horizon", RefractionText(PlaceOf(s).Observer)
 	if rising {
 		verb = "appears on the horizon"
 	}

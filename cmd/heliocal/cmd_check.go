@@ -98,15 +98,22 @@ func horizonText(s checkSite) string {
 	if len(s.Skyline) == 0 {
 		return strconv.FormatFloat(s.Horizon, 'f', -1, 64) + "°"
 	}
-	lo, hi := s.Skyline[0][1], s.Skyline[0][1]
-	for _, p := range s.Skyline {
+	return skylineText(s.Skyline, s.SkylineFile)
+}
+
+// skylineText is a skyline per direction in a few words: "skyline 1–14° (8
+// points)", with the base name of the file it was read from, if any:
+// "(8 points, hills.csv)".
+func skylineText(skyline [][2]float64, file string) string {
+	lo, hi := skyline[0][1], skyline[0][1]
+	for _, p := range skyline {
 		lo, hi = min(lo, p[1]), max(hi, p[1])
 	}
 	from := ""
-	if s.SkylineFile != "" {
-		from = ", " + filepath.Base(s.SkylineFile)
+	if file != "" {
+		from = ", " + filepath.Base(file)
 	}
-	return fmt.Sprintf("skyline %s–%s° (%d points%s)", strconv.FormatFloat(lo, 'f', -1, 64), strconv.FormatFloat(hi, 'f', -1, 64), len(s.Skyline), from)
+	return fmt.Sprintf("skyline %s–%s° (%d points%s)", strconv.FormatFloat(lo, 'f', -1, 64), strconv.FormatFloat(hi, 'f', -1, 64), len(skyline), from)
 }
 
 type checkFeed struct {

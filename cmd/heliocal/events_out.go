@@ -893,8 +893,21 @@ func newTableSink(w *bufio.Writer, s *config.Site) *tableSink {
 	if s.Name != place { // a place named by its coordinates alone is not named twice
 		place = s.Name + ": " + place
 	}
-	fmt.Fprintf(w, "%s, %s m, %s\n\n", place, signed(s.Elevation, -1), loc)
-	return &tableSink{w: w, loc: loc, o: feed.PlaceOf(s).Observer}
+	// what the times are for besides the place, when it is not the flat
+	// horizon and the standard refraction: as the feeds' descriptions say it
+	var cond string
+	switch {
+	case len(s.Skyline) > 0:
+		cond = ", " + skylineText(s.Skyline, s.HorizonFile)
+	case s.Horizon != 0:
+		cond = ", horizon " + signed(s.Horizon, -1) + "°"
+	}
+	o := feed.PlaceOf(s).Observer
+	if o.Pressure != 0 {
+		cond += ", " + feed.RefractionText(o)
+	}
+	fmt.Fprintf(w, "%s, %s m%s, %s\n\n", place, signed(s.Elevation, -1), cond, loc)
+	return &tableSink{w: w, loc: loc, o: o}
 }
 
 func (t *tableSink) prepare(ch *feed.Chunk, out *chunkOut) error {

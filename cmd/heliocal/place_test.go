@@ -163,3 +163,26 @@ func TestPhotoperiodNeverReached(t *testing.T) {
 		t.Errorf("events says it %d times over two years:\n%s", n, out)
 	}
 }
+
+// The table's heading says what its times are for besides the place: a
+// horizon altitude, a skyline per direction, the air the refraction is
+// scaled for (the pressure from the standard atmosphere at sea level when
+// only the temperature is given: 1013 hPa, ICAO); nothing for a flat
+// horizon and the standard refraction.
+func TestEventsTableHeadingConditions(t *testing.T) {
+	day := []string{"--lat", "48.2", "--lon", "16.4", "--tz", "Europe/Vienna", "--from", "2027-01-15", "--to", "2027-01-15", "--kinds", "sunrise"}
+	for _, tc := range []struct {
+		args []string
+		want string
+	}{
+		{nil, "48.2000° N, 16.4000° E, 0 m, Europe/Vienna\n"},
+		{[]string{"--horizon", "1.5"}, "48.2000° N, 16.4000° E, 0 m, horizon 1.5°, Europe/Vienna\n"},
+		{[]string{"--horizon", "-0.5", "--temperature", "-20"}, "48.2000° N, 16.4000° E, 0 m, horizon −0.5°, refraction for 1013 hPa and −20 °C, Europe/Vienna\n"},
+		{[]string{"--horizon", "0:2,90:8,180:1,270:4", "--pressure", "1030", "--temperature", "-20"}, "48.2000° N, 16.4000° E, 0 m, skyline 1–8° (4 points), refraction for 1030 hPa and −20 °C, Europe/Vienna\n"},
+	} {
+		code, out, errOut := runCLI(t, append(append([]string{"events"}, day...), tc.args...)...)
+		if first, _, _ := strings.Cut(out, "\n"); code != 0 || first+"\n" != tc.want {
+			t.Errorf("%v: exit %d, heading %q, want %q; stderr %s", tc.args, code, first, tc.want, errOut)
+		}
+	}
+}

@@ -584,3 +584,58 @@ func TestBrowserBuilderFieldError(t *testing.T) {
 		t.Errorf("corrected: tz described by %q (%v), want tz-help again", d.Value, err)
 	}
 }
+
+// dateBreaks lists the row headings of the day-by-day tables (the page /at
+// and the builder's preview) that a line break splits inside the date:
+// "Tue 2026-12-" over "29". A heading may break after its weekday only.
+const dateBreaks = `[...document.querySelectorAll("table.days tbody th")].flatMap(th => {
+  const r = document.createRange(), out = [];
+  let top = null, seen = "";
+  const walk = document.createTreeWalker(th, NodeFilter.SHOW_TEXT);
+  for (let node = walk.nextNode(); node; node = walk.nextNode()) {
+    for (let i = 0; i < node.length; i++) {
+      r.setStart(node, i); r.setEnd(node, i + 1);
+      const y = r.getBoundingClientRect().top;
+      if (top !== null && y > top + 2 && !/^[A-Z][a-z]{2} $/.test(seen)) out.push(JSON.stringify(seen) + " over " + JSON.stringify(th.textContent.slice(seen.length)));
+      top = y;
+      seen += node.data[i];
+    }
+  }
+  return out;
+})`
+
+// On a phone the dates of the day-by-day table (/at) and of the builder's
+// preview are never split over two lines, down to a 320 px screen.
+func TestBrowserDatesWhole(t *testing.T) {
+	ts := builderServer(t)
+	ctx := browser(t)
+	table := ts.URL + "/at?lat=78.22&lon=15.65&start=2026-12-04&days=30&name=Longyearbyen"
+	for _, w := range []int64{390, 320} {
+		if err := chromedp.Do(ctx, chromedp.EmulateViewport(w, 800), chromedp.Navigate(table), chromedp.WaitVisible(chromedp.CSS("table.days"))); err != nil {
+			t.Fatal(err)
+		}
+		split, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](dateBreaks))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(split) > 0 {
+			t.Errorf("the table page at %d px splits %d dates: %s", w, len(split), strings.Join(split, "; "))
+		}
+	}
+	if err := chromedp.Do(ctx,
+		chromedp.Navigate(ts.URL+"/"),
+		chromedp.WaitVisible(chromedp.ID("lat")),
+		chromedp.SendKeys(chromedp.ID("lat"), "-33.45"),
+		chromedp.SendKeys(chromedp.ID("lon"), "-70.67"),
+		chromedp.Poll[chromedp.Void](`document.querySelector("#preview th") !== null`),
+	); err != nil {
+		t.Fatal(err)
+	}
+	split, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](dateBreaks))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(split) > 0 {
+		t.Errorf("the builder's preview at 320 px splits %d dates: %s", len(split), strings.Join(split, "; "))
+	}
+}

@@ -110,7 +110,10 @@ function render(res) {
     const row = body.insertRow();
     const th = document.createElement("th");
     th.scope = "row";
-    th.textContent = day.weekday + " " + day.date;
+    const date = document.createElement("span");
+    date.className = "date";
+    date.textContent = day.date;
+    th.append(day.weekday + " ", date);
     row.appendChild(th);
     const td = row.insertCell();
     if (day.entries.length === 0) td.textContent = "—";

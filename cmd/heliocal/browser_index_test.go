@@ -84,6 +84,19 @@ const indexReadability = `(() => {
     const c = ratio(rgb(st.fill), page);
     if (c < 4.5) out.push("threshold label " + JSON.stringify(t.textContent) + " " + c.toFixed(2) + ":1 against the page, need 4.5");
   }
+  // Each key of a chart's caption is drawn as the chart draws its mark.
+  const rgba = (s) => { const v = s.match(/[\d.]+/g).map(Number); return v.length > 3 ? v : v.concat(1); };
+  for (const fig of document.querySelectorAll("figure")) {
+    for (const key of fig.querySelectorAll("figcaption .key")) {
+      const kind = [...key.classList].find(c => c !== "key");
+      const mark = fig.querySelector("svg ." + kind);
+      if (!mark || kind === "today") continue; // today: the text colour, the caption's and the chart's
+      const m = getComputedStyle(mark), k = rgba(getComputedStyle(key).borderTopColor);
+      const drawn = rgba(m.stroke);
+      drawn[3] *= parseFloat(m.strokeOpacity);
+      if (drawn.slice(0, 3).join() !== k.slice(0, 3).join() || Math.abs(drawn[3] - k[3]) > 0.02) out.push(fig.querySelector("title").textContent.split(",")[0] + ": the key of " + kind + " is " + getComputedStyle(key).borderTopColor + ", the chart draws it " + m.stroke + " at opacity " + m.strokeOpacity);
+    }
+  }
   if (ratio(ink, [255, 255, 255]) < 4.5) out.push("text " + getComputedStyle(document.body).color + " is " + ratio(ink, [255, 255, 255]).toFixed(2) + ":1 against white paper");
   return out;
 })()`
@@ -91,7 +104,8 @@ const indexReadability = `(() => {
 // The published index reads whole at a tablet's 768 px and a desk's 1280 px,
 // in the light and the dark palette: subscribe links break only after a dash,
 // the charts' threshold labels reach 4.5:1 (WCAG 2.1 SC 1.4.3) on a halo of
-// the page colour; printed, from a system in dark mode too, its text is dark
+// the page colour, and each key of a chart's caption has the colour of the
+// mark it names; printed, from a system in dark mode too, its text is dark
 // on the white paper, and a site's heading stays with its chart.
 func TestBrowserPublishedIndexReadable(t *testing.T) {
 	ctx := browser(t)

@@ -190,3 +190,17 @@ func TestRootHelpNamesFamilies(t *testing.T) {
 		}
 	}
 }
+
+// --version is described in the words of the version command, not as
+// cobra's "version for heliocal", and still prints the version.
+func TestVersionFlagHelp(t *testing.T) {
+	code, out, errOut := runCLI(t, "--help")
+	if code != 0 || !strings.Contains(out, "print the version (also: heliocal version)") || strings.Contains(out, "version for heliocal") {
+		t.Errorf("heliocal --help: exit %d, stderr %q:\n%s", code, errOut, out)
+	}
+	for _, flag := range []string{"--version", "-v"} {
+		if code, out, _ := runCLI(t, flag); code != 0 || !strings.HasPrefix(out, "heliocal ") {
+			t.Errorf("heliocal %s: exit %d, %q", flag, code, out)
+		}
+	}
+}

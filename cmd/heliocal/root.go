@@ -163,6 +163,8 @@ Configuration: --config FILE, else ./heliocal.yaml, else the built-in demo.` + e
 		Version:       "set", // non-empty for --version; the text is versionTemplateFunc's
 	}
 	root.SetVersionTemplate("{{" + versionTemplateFunc + "}}\n")
+	// cobra would add it as "version for heliocal"
+	root.Flags().BoolP("version", "v", false, "print the version (also: heliocal version)")
 	installHelp(root, g)
 	root.PersistentFlags().StringVarP(&g.configPath, "config", "c", "", "configuration file (YAML, TOML or JSON); - reads it from standard input")
 	root.SetFlagErrorFunc(func(_ *cobra.Command, err error) error { return inputError{flagValueError(err)} })

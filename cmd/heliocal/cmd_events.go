@@ -135,6 +135,11 @@ func checkEventsFlags(o *eventsOptions) error {
 	if math.IsNaN(o.maxLit) || o.maxLit < 0 || o.maxLit > 1 {
 		return badInput("--max-illumination: %v: must be within 0..1", o.maxLit)
 	}
+	if o.feed == "" || o.kindsSet { // runEvents parses them again, after the place and its zone note
+		if _, err := parseKinds(o.kinds); err != nil {
+			return err
+		}
+	}
 	return nil
 }
 

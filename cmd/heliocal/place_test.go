@@ -186,3 +186,12 @@ func TestEventsTableHeadingConditions(t *testing.T) {
 		}
 	}
 }
+
+// A bad --kinds is the only message: it is found before the zone at the
+// place is looked up and named in a note.
+func TestEventsBadKindsBeforeZoneNote(t *testing.T) {
+	code, out, errOut := runCLI(t, "events", "--lat", "23.13", "--lon", "-82.38", "--kinds", "sunrise,sunrize")
+	if want := "heliocal: --kinds: unknown kind \"sunrize\" (did you mean \"sunrise\"?)\n"; code != exitInput || errOut != want || out != "" {
+		t.Errorf("exit %d, stderr %q, stdout %q; want exit 2 and stderr %q alone", code, errOut, out, want)
+	}
+}

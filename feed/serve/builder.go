@@ -415,7 +415,7 @@ func (s *Server) links(r *http.Request, q AdhocQuery, start string, days int) (h
 }
 
 func (s *Server) servePreview(w http.ResponseWriter, r *http.Request) {
-	q, cal, start, ok := s.previewCalendar(w, r, previewDays)
+	q, cal, start, ok := s.previewCalendar(w, r, previewDays, plain)
 	if !ok {
 		return
 	}
@@ -424,11 +424,11 @@ func (s *Server) servePreview(w http.ResponseWriter, r *http.Request) {
 	var err error
 	if s.opts.Adhoc != nil {
 		subDays, err = s.subscribeDays(r.Context(), q, &lamps)
-		if s.computeFailed(w, q, err) {
+		if s.computeFailed(w, q, err, plain) {
 			return
 		}
 	}
-	if err := s.lampNotesAsFed(r.Context(), q, subDays, &lamps, cal); s.computeFailed(w, q, err) {
+	if err := s.lampNotesAsFed(r.Context(), q, subDays, &lamps, cal); s.computeFailed(w, q, err, plain) {
 		return
 	}
 	https, page := s.links(r, q, start, subDays)
@@ -506,14 +506,14 @@ func (s *Server) lampNotesAsFed(ctx context.Context, q AdhocQuery, feedDays int,
 // computes its calendar; start is the query's own start date ("" when it
 // gave none). It answers the request itself and reports false when the query
 // is bad or the computation fails.
-func (s *Server) previewCalendar(w http.ResponseWriter, r *http.Request, maxDays int) (q AdhocQuery, cal *feed.Calendar, start string, ok bool) {
+func (s *Server) previewCalendar(w http.ResponseWriter, r *http.Request, maxDays int, fail failFunc) (q AdhocQuery, cal *feed.Calendar, start string, ok bool) {
 	q, hasStart, err := s.previewQuery(r, previewDays, maxDays)
 	if err != nil {
-		plain(w, http.StatusBadRequest, err.Error())
+		fail(w, http.StatusBadRequest, err.Error())
 		return q, nil, "", false
 	}
 	cal, err = s.compute(r.Context(), q)
-	if s.computeFailed(w, q, err) {
+	if s.computeFailed(w, q, err, fail) {
 		return q, nil, "", false
 	}
 	if hasStart {
@@ -522,20 +522,25 @@ func (s *Server) previewCalendar(w http.ResponseWriter, r *http.Request, maxDays
 	return q, cal, start, true
 }
 
+// failFunc answers a refused or failed request with its status and message:
+// plain for /at.json (the builder's script shows the text), an HTML page for
+// the table /at that people open from a shared link.
+type failFunc func(w http.ResponseWriter, code int, msg string)
+
 // computeFailed answers a failed computation and reports whether it did.
-func (s *Server) computeFailed(w http.ResponseWriter, q AdhocQuery, err error) bool {
+func (s *Server) computeFailed(w http.ResponseWriter, q AdhocQuery, err error, fail failFunc) bool {
 	var qe *QueryError
 	switch {
 	case err == nil:
 		return false
 	case errors.As(err, &qe):
-		plain(w, http.StatusBadRequest, qe.Error())
+		fail(w, http.StatusBadRequest, qe.Error())
 	case errors.Is(err, errAdhocBusy), errors.Is(err, context.DeadlineExceeded), errors.Is(err, context.Canceled):
 		w.Header()["Retry-After"] = hdrRetryAfter
-		plain(w, http.StatusServiceUnavailable, "server busy; try again shortly")
+		fail(w, http.StatusServiceUnavailable, "server busy; try again shortly")
 	default:
 		s.log.Error("preview failed", "query", q.String(), "err", err)
-		plain(w, http.StatusInternalServerError, "internal error computing the preview")
+		fail(w, http.StatusInternalServerError, "internal error computing the preview")
 	}
 	return true
 }
@@ -652,6 +657,11 @@ func htmlHeaders(w http.ResponseWriter) {
 }
 
 func (s *Server) render(w http.ResponseWriter, r *http.Request, name string, data any) {
+	s.renderStatus(w, r, http.StatusOK, name, data)
+}
+
+// renderStatus answers with the page name made of data, under status code.
+func (s *Server) renderStatus(w http.ResponseWriter, r *http.Request, code int, name string, data any) {
 	var buf bytes.Buffer
 	if err := pageTemplates().ExecuteTemplate(&buf, name, data); err != nil {
 		s.log.Error("page template failed", "page", name, "err", err)
@@ -660,6 +670,7 @@ func (s *Server) render(w http.ResponseWriter, r *http.Request, name string, dat
 	}
 	htmlHeaders(w)
 	w.Header().Set("Content-Length", strconv.Itoa(buf.Len()))
+	w.WriteHeader(code)
 	if r.Method != http.MethodHead {
 		w.Write(buf.Bytes())
 	}
@@ -683,7 +694,7 @@ type tableView struct {
 }
 
 func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
-	q, cal, start, ok := s.previewCalendar(w, r, maxTable)
+	q, cal, start, ok := s.previewCalendar(w, r, maxTable, s.tableFailed(r))
 	if !ok {
 		return
 	}
@@ -700,6 +711,21 @@ func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
 		Days: days(cal, q), From: q.Start.Format(time.DateOnly), To: q.Start.AddDate(0, 0, q.Days-1).Format(time.DateOnly),
 		Builder: !s.page().NoBuilder, Legal: slices.ContainsFunc(q.Kinds, LegalKind)}
 	s.render(w, r, "table.html", v)
+}
+
+// errorView is the data of error.html.
+type errorView struct {
+	Page    PageInfo
+	Message string
+	Builder bool
+}
+
+// tableFailed answers a table that cannot be shown with a page that says
+// why, in the page's language and style, and leads back to the builder.
+func (s *Server) tableFailed(r *http.Request) failFunc {
+	return func(w http.ResponseWriter, code int, msg string) {
+		s.renderStatus(w, r, code, "error.html", errorView{Page: s.page(), Message: strings.TrimPrefix(msg, "serve: "), Builder: !s.page().NoBuilder})
+	}
 }
 
 // page is the page settings with their defaults.

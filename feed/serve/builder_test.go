@@ -228,3 +228,34 @@ func TestPageDefaultTitle(t *testing.T) {
 		t.Errorf("the page's heading is not the default of page.title")
 	}
 }
+
+// A table link that cannot be shown (a latitude of 95°, outside −90..90; a
+// table of 63 days, over its 62) answers a page in the page's language and
+// style that says why and leads back to the builder, with the status of the
+// refusal; the builder's own preview /at.json keeps its one line of text.
+func TestTableErrorPage(t *testing.T) {
+	s := builderTestServer(t)
+	h := s.Handler()
+	for _, tc := range []struct{ query, says string }{
+		{"lat=95&lon=10", `parameter lat=&#34;95&#34;: must be within -90..90 degrees`},
+		{"lat=47.8&lon=13.05&kinds=sunrise&days=63", "parameter days=&#34;63&#34;"},
+	} {
+		r := get(t, h, "GET", "/at?"+tc.query)
+		b := body(t, r)
+		if r.StatusCode != 400 || !strings.HasPrefix(r.Header.Get("Content-Type"), "text/html") || r.Header.Get("Content-Security-Policy") == "" {
+			t.Errorf("/at?%s: %d %q (CSP %q), want 400 text/html under the page's policy", tc.query, r.StatusCode, r.Header.Get("Content-Type"), r.Header.Get("Content-Security-Policy"))
+		}
+		for _, want := range []string{`<html lang="en">`, "<title>This table cannot be shown", `<p class="message">` + tc.says, `<a href="/">`, `href="/assets/builder.css"`} {
+			if !strings.Contains(b, want) {
+				t.Errorf("/at?%s: the page lacks %q:\n%s", tc.query, want, b)
+			}
+		}
+		if strings.Contains(b, "serve: ") {
+			t.Errorf("/at?%s: the page says the program's prefix \"serve: \"", tc.query)
+		}
+		r = get(t, h, "GET", "/at.json?"+tc.query)
+		if b := body(t, r); r.StatusCode != 400 || !strings.HasPrefix(r.Header.Get("Content-Type"), "text/plain") || !strings.HasPrefix(b, "serve: parameter ") {
+			t.Errorf("/at.json?%s: %d %q %q, want 400 and the plain message", tc.query, r.StatusCode, r.Header.Get("Content-Type"), b)
+		}
+	}
+}

@@ -536,6 +536,49 @@ func TestCacheControlBounds(t *testing.T) {
 	}
 }
 
+// TestCacheControlOfPages: what docs/serving.md promises of the responses
+// that are not feeds. The page, its preview, the table, /healthz, /metrics
+// and every error are sent with no-store (a browser or proxy keeps none of
+// them); the page's own files with no-cache and an ETag, so that a browser
+// revalidates them and gets 304 while they are unchanged.
+func TestCacheControlOfPages(t *testing.T) {
+	s := builderTestServer(t)
+	h := s.Handler()
+	for _, tc := range []struct {
+		method, path string
+		status       int
+	}{
+		{"GET", "/", 200},
+		{"GET", "/at.json?lat=47.8&lon=13.05&kinds=sunrise", 200},
+		{"GET", "/at?lat=47.8&lon=13.05&kinds=sunrise&days=3", 200},
+		{"GET", "/healthz", 200},
+		{"GET", "/metrics", 200},
+		{"GET", "/at.ics?lat=95&lon=13.05", 400},
+		{"GET", "/at.json?lat=95&lon=13.05", 400},
+		{"GET", "/at?lat=95&lon=13.05", 400},
+		{"GET", "/feeds/no-such-feed.ics", 404},
+		{"GET", "/nothing-here", 404},
+		{"POST", "/feeds.json", 405},
+		{"DELETE", "/feeds/meadowbrook-sun.ics", 405},
+	} {
+		r := get(t, h, tc.method, tc.path)
+		if r.StatusCode != tc.status || r.Header.Get("Cache-Control") != "no-store" {
+			t.Errorf("%s %s: %d, Cache-Control %q; want %d, no-store", tc.method, tc.path, r.StatusCode, r.Header.Get("Cache-Control"), tc.status)
+		}
+	}
+	for _, path := range []string{"/assets/builder.js", "/assets/builder.css", "/favicon.svg"} {
+		r := get(t, h, "GET", path)
+		etag := r.Header.Get("ETag")
+		if r.StatusCode != 200 || r.Header.Get("Cache-Control") != "no-cache" || !strings.HasPrefix(etag, `"`) {
+			t.Errorf("%s: %d, Cache-Control %q, ETag %q; want 200, no-cache and an ETag", path, r.StatusCode, r.Header.Get("Cache-Control"), etag)
+			continue
+		}
+		if r := get(t, h, "GET", path, "If-None-Match", etag); r.StatusCode != http.StatusNotModified {
+			t.Errorf("%s revalidated with its ETag: %d, want 304", path, r.StatusCode)
+		}
+	}
+}
+
 // TestWholeResponse: an unconditional GET or HEAD of a feed is answered as
 // http.ServeContent answers it (same status, headers and body), with a
 // Content-Length for the gzip form too, which ServeContent leaves out when

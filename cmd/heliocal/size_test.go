@@ -3,8 +3,10 @@ package main
 import (
 	"context"
 	"encoding/json"
+	"os"
 	"path/filepath"
 	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 )
@@ -104,13 +106,15 @@ func TestServeTrimNote(t *testing.T) {
 // check says what publish and serve do with a feed over max_feed_bytes
 // under each service.oversize, and exits as publish does: warn publishes
 // it as it is (a warning, exit 0), trim shortens it (publish's note, the
-// shortened feed's size in the table, exit 0), fail refuses it (exit 1,
+// shortened feed's size in the table; in JSON its trimmed_to, events and
+// bytes, and the note in notes; exit 0), fail refuses it (exit 1,
 // naming the feed and its size, in text and in JSON).
 func TestCheckOversizeModes(t *testing.T) {
 	for _, mode := range []string{"warn", "trim", "fail"} {
 		t.Run(mode, func(t *testing.T) {
 			cfg := writeConfig(t, strings.Replace(meadowOversize, "max_feed_bytes: 20000\n", "max_feed_bytes: 20000\n  oversize: "+mode+"\n", 1))
-			pubCode, _, pubErr := runCLI(t, "publish", "--config", cfg, "--out", filepath.Join(t.TempDir(), "public"))
+			pubDir := filepath.Join(t.TempDir(), "public")
+			pubCode, _, pubErr := runCLI(t, "publish", "--config", cfg, "--out", pubDir)
 			code, out, errOut := runCLI(t, "check", "--config", cfg)
 			if code != pubCode {
 				t.Errorf("check exits %d, publish %d (%s)", code, pubCode, pubErr)
@@ -127,6 +131,31 @@ func TestCheckOversizeModes(t *testing.T) {
 				}
 				if m := regexp.MustCompile(`(?m)^meadow .* (\d+(\.\d)? kB)$`).FindStringSubmatch(out); m == nil || !strings.HasPrefix(m[1], "1") {
 					t.Errorf("the table does not show the shortened size:\n%s", out)
+				}
+				// JSON: the feed's trimmed_to, events and bytes are those of the
+				// file publish wrote, and notes has publish's note
+				published, err := os.ReadFile(filepath.Join(pubDir, "meadow.ics"))
+				if err != nil {
+					t.Fatal(err)
+				}
+				m := regexp.MustCompile(`shortened to (\d{4}-\d\d-\d\d) .*, (\d+) events\)`).FindStringSubmatch(note)
+				code, out, errOut := runCLI(t, "check", "--config", cfg, "--format", "json")
+				var r struct {
+					Notes []string
+					Feeds []struct {
+						Events, Bytes int
+						Oversize      bool
+						TrimmedTo     string `json:"trimmed_to"`
+					}
+				}
+				if err := json.Unmarshal([]byte(out), &r); err != nil {
+					t.Fatal(err)
+				}
+				if code != 0 || errOut != "" || m == nil || len(r.Feeds) != 1 || !r.Feeds[0].Oversize || r.Feeds[0].TrimmedTo != m[1] ||
+					strconv.Itoa(r.Feeds[0].Events) != m[2] || r.Feeds[0].Events != strings.Count(string(published), "BEGIN:VEVENT") ||
+					r.Feeds[0].Bytes != len(published) || len(r.Notes) != 1 || "note: "+r.Notes[0]+"\n" != note {
+					t.Errorf("json: exit %d, stderr %q, feeds %+v, notes %q; want trimmed_to, events and bytes of the published %d bytes and the note %q",
+						code, errOut, r.Feeds, r.Notes, len(published), note)
 				}
 			case "fail":
 				refused := regexp.MustCompile(`heliocal: feed "meadow" is \d+(\.\d+)? kB, over service\.max_feed_bytes \(20 kB\): publish and serve refuse it \(service\.oversize: fail\)`)

@@ -6,6 +6,7 @@ import (
 	"os"
 	"path/filepath"
 	"reflect"
+	"regexp"
 	"slices"
 	"strconv"
 	"strings"
@@ -33,6 +34,64 @@ func TestEventsFeedICSEqualsPublished(t *testing.T) {
 		if out != string(want) {
 			t.Errorf("%s: events --format ics differs from the published feed (%d vs %d bytes)", id, len(out), len(want))
 		}
+	}
+}
+
+// A feed that service.oversize: trim shortens is listed whole by `events
+// --feed`, over its whole window; the published file stops at the date
+// check names (trimmed_to) and holds the listing's entries up to it.
+func TestEventsFeedTrimmedListedWhole(t *testing.T) {
+	cfg := writeConfig(t, strings.Replace(meadowOversize, "max_feed_bytes: 20000\n", "max_feed_bytes: 20000\n  oversize: trim\n", 1))
+	dir := t.TempDir()
+	if code, _, errOut := runCLI(t, "publish", "--config", cfg, "--out", dir); code != 0 {
+		t.Fatalf("publish: exit %d: %s", code, errOut)
+	}
+	published, err := os.ReadFile(filepath.Join(dir, "meadow.ics"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	code, out, errOut := runCLI(t, "check", "--config", cfg, "--format", "json")
+	var report struct {
+		Feeds []struct {
+			TrimmedTo string `json:"trimmed_to"`
+		}
+	}
+	if err := json.Unmarshal([]byte(out), &report); code != 0 || err != nil || len(report.Feeds) != 1 || report.Feeds[0].TrimmedTo == "" {
+		t.Fatalf("check: exit %d, %v, %s%s", code, err, out, errOut)
+	}
+	to := report.Feeds[0].TrimmedTo
+	code, out, errOut = runCLI(t, "events", "--config", cfg, "--feed", "meadow", "--format", "json")
+	if code != 0 {
+		t.Fatalf("events: exit %d: %s", code, errOut)
+	}
+	var listed struct {
+		Entries []struct{ Date string }
+	}
+	if err := json.Unmarshal([]byte(out), &listed); err != nil || len(listed.Entries) == 0 {
+		t.Fatalf("events: %v, %d entries", err, len(listed.Entries))
+	}
+	upTo := 0
+	for _, e := range listed.Entries {
+		if e.Date <= to {
+			upTo++
+		}
+	}
+	// days_back 0, days_ahead 200: the window ends 200 days after today in
+	// the site's zone (a day either side: the test may run across midnight)
+	last := time.Now().In(mustZone(t, "Europe/Zurich")).AddDate(0, 0, 200)
+	got, err := time.Parse(time.DateOnly, listed.Entries[len(listed.Entries)-1].Date)
+	if d := got.Sub(time.Date(last.Year(), last.Month(), last.Day(), 0, 0, 0, 0, time.UTC)); err != nil || d < -24*time.Hour || d > 24*time.Hour || got.Format(time.DateOnly) <= to {
+		t.Errorf("events --feed ends on %s; want the window's end %s, past the published %s", got.Format(time.DateOnly), last.Format(time.DateOnly), to)
+	}
+	if n := strings.Count(string(published), "BEGIN:VEVENT"); n != upTo || n >= len(listed.Entries) {
+		t.Errorf("published %d events, the listing %d up to %s and %d in all", n, upTo, to, len(listed.Entries))
+	}
+	starts := regexp.MustCompile(`(?m)^DTSTART;TZID=Europe/Zurich:(\d{4})(\d\d)(\d\d)T`).FindAllStringSubmatch(string(published), -1)
+	if len(starts) == 0 {
+		t.Fatal("no DTSTART in the published feed")
+	}
+	if m := starts[len(starts)-1]; m[1]+"-"+m[2]+"-"+m[3] != to {
+		t.Errorf("the published feed's last date %s-%s-%s, check's trimmed_to %s", m[1], m[2], m[3], to)
 	}
 }
 

@@ -482,3 +482,27 @@ func TestPieceWriter(t *testing.T) {
 		t.Errorf("text that fits the buffer after a failed write: %v, want %v", err, errPieceFull)
 	}
 }
+
+// The supported dates, as the README states them: every kind from
+// 1800-01-01 to 2200-12-31 (local dates), for a place and for a configured
+// feed; a range that reaches a day past either end is refused with exit 2,
+// naming the range, and nothing on standard output.
+func TestEventsSupportedDates(t *testing.T) {
+	for _, where := range [][]string{
+		{"--lat", "48.2", "--lon", "16.4", "--tz", "Europe/Vienna", "--kinds", "sunrise,moonrise,dark-window,daily-summary"},
+		{"--feed", "cairnmoor-twilight"},
+	} {
+		for _, r := range [][2]string{{"1800-01-01", "1800-01-02"}, {"2200-12-30", "2200-12-31"}} {
+			code, out, errOut := runCLI(t, append([]string{"events", "--from", r[0], "--to", r[1], "--format", "csv"}, where...)...)
+			if code != 0 || !strings.Contains(out, "\n"+r[0]+",") || !strings.Contains(out, "\n"+r[1]+",") {
+				t.Errorf("%v %s..%s: exit %d, stderr %q; want events on both dates:\n%s", where, r[0], r[1], code, errOut, out)
+			}
+		}
+		for _, r := range [][2]string{{"1799-12-31", "1800-01-01"}, {"2200-12-31", "2201-01-01"}} {
+			code, out, errOut := runCLI(t, append([]string{"events", "--from", r[0], "--to", r[1]}, where...)...)
+			if code != exitInput || out != "" || !strings.Contains(errOut, "--from/--to: "+r[0]+".."+r[1]+": outside the supported dates 1800-01-01..2200-12-31") {
+				t.Errorf("%v %s..%s: exit %d, stdout %q, stderr %q; want 2 naming the supported dates", where, r[0], r[1], code, out, errOut)
+			}
+		}
+	}
+}

@@ -933,9 +933,10 @@ func TestLampNoteWithin(t *testing.T) {
 // at 01:00 UT on Sunday 31 October 2027 (IANA tz database, Rule EU 1981
 // max - Oct lastSun 1:00u), so latest_off 02:30 is 00:30 UT (CEST) and
 // again 01:30 UT (CET); the lamps go off at the first, 02:30:00 CEST, as
-// RFC 5545 §3.3.5 reads an ambiguous local time ("the first occurrence").
-// The target (21 h) is far from any natural day at 52.5° N, so the
-// evening period is clipped whatever the sunset.
+// RFC 5545 §3.3.5 reads an ambiguous local time ("the first occurrence"),
+// and earliest_on 02:30 puts them on at that first 02:30 too. The target
+// (21 h) is far from any natural day at 52.5° N, so the evening and the
+// morning periods are clipped whatever the sunset and sunrise.
 func TestLightingLimitRepeatedByTheClocks(t *testing.T) {
 	s := site(t, "berlin-room", 52.52, 13.40, "Europe/Berlin")
 	sk := sky(t, "2027-01-01", "2027-12-31")
@@ -951,5 +952,20 @@ func TestLightingLimitRepeatedByTheClocks(t *testing.T) {
 	if at := time.Date(2027, 10, 31, 0, 30, 0, 0, time.UTC); !e.End.Equal(at) || !strings.Contains(e.Description, ", off at 02:30:00 CEST +1 day") ||
 		strings.Contains(e.Description, "moved") {
 		t.Errorf("%s–%s %q\nwant the lamps off at %s, 02:30:00 CEST", e.Start, e.End, e.Description, at)
+	}
+	// the same holds for earliest_on: morning lamps on no earlier than
+	// 02:30 go on at the first 02:30 of 31 October, 00:30 UT (CEST)
+	spec = lightingSpec(t, "lighting:21h", func(ks *config.KindSpec) { ks.Lamps, ks.EarliestOn = config.LampsMorning, "02:30" })
+	es, err = sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date("2027-10-31"), date("2027-10-31"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(es) != 1 || !es[0].Facts.Short {
+		t.Fatalf("%d entries, want one clipped period", len(es))
+	}
+	e = es[0]
+	if at := time.Date(2027, 10, 31, 0, 30, 0, 0, time.UTC); !e.Start.Equal(at) || !strings.Contains(e.Description, "on at 02:30:00 CEST") ||
+		strings.Contains(e.Description, "moved") {
+		t.Errorf("%s–%s %q\nwant the lamps on at %s, 02:30:00 CEST", e.Start, e.End, e.Description, at)
 	}
 }

@@ -4,10 +4,12 @@ import (
 	"bytes"
 	"errors"
 	"fmt"
+	"io"
 	"io/fs"
 	"os"
 	"path/filepath"
 	"reflect"
+	"slices"
 	"strings"
 	"testing"
 	"time"
@@ -422,6 +424,11 @@ func TestEnvOverrides(t *testing.T) {
 		"HELIOCAL_REFRESH_ZONE":   "Pacific/Auckland",
 		"HELIOCAL_MAX_FEED_BYTES": "750000",
 		"HELIOCAL_SITES":          "ignored: only deployment settings are read",
+		// ignored: these come only from the file (docs/configuration.md)
+		"HELIOCAL_OVERSIZE":        "fail",
+		"HELIOCAL_TRUSTED_PROXIES": "10.0.0.0/8",
+		"HELIOCAL_PAGE_TITLE":      "Set from the environment",
+		"HELIOCAL_PAGE_BUILDER":    "false",
 	}
 	lookup := func(k string) (string, bool) { v, ok := env[k]; return v, ok }
 	f, err := os.Open(filepath.Join(testdata, "parity.yaml"))
@@ -437,6 +444,17 @@ func TestEnvOverrides(t *testing.T) {
 	if s.Listen != "127.0.0.1:9999" || s.OutDir != "/srv/calendars" || s.BaseURL != "https://cal.example.net/" ||
 		s.Refresh != "0 4 * * *" || s.RefreshZone.Name() != "Pacific/Auckland" || s.MaxFeedBytes != 750000 {
 		t.Errorf("overrides not applied: %+v zone %s", s, s.RefreshZone.Name())
+	}
+	if _, err := f.Seek(0, io.SeekStart); err != nil {
+		t.Fatal(err)
+	}
+	plain, err := ParseEnv(f, "yaml", nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.Oversize != plain.Service.Oversize || !slices.Equal(s.TrustedProxies, plain.Service.TrustedProxies) || !reflect.DeepEqual(c.Page, plain.Page) || len(c.Sites) != len(plain.Sites) {
+		t.Errorf("the environment set what only the file sets: oversize %q, trusted_proxies %q, page %+v; the file alone: %q, %q, %+v",
+			s.Oversize, s.TrustedProxies, c.Page, plain.Service.Oversize, plain.Service.TrustedProxies, plain.Page)
 	}
 
 	// A bad value from the environment is reported at its key, naming the variable.

@@ -379,6 +379,28 @@ func TestTimeScalesLeapSeconds(t *testing.T) {
 	}
 }
 
+// TestUTCAheadIsUT1 checks what docs/accuracy.md says of the years after
+// the observed table: UT1 − UTC is taken as zero, as if leap seconds went
+// on keeping the two within a second, so that TT − UTC is ΔT (TT − UT1),
+// by the definitions of the time scales (IERS Conventions 2010, ch. 5:
+// TT − UTC = (TT − UT1) + (UT1 − UTC)). From a year after the table's end
+// (2023-05, after which the last observed UT1 − UTC fades to zero) to the
+// end of the supported dates.
+func TestUTCAheadIsUT1(t *testing.T) {
+	for sec := deltaTTableEnd + 366*secondsPerDay; sec < maxUnix; sec += 29 * secondsPerDay {
+		at := timeFromUnix(sec)
+		dut1, err := UT1MinusUTC(at)
+		if err != nil {
+			t.Fatal(err)
+		}
+		dt, _ := DeltaT(at)
+		e := epochOf(sec)
+		if d := (e.JDE-e.JD)*secondsPerDay - dt.Seconds(); dut1 != 0 || math.Abs(d) > 1e-3 {
+			t.Fatalf("%s: UT1 − UTC = %v, TT − UTC − ΔT = %.6f s; want both zero", at, dut1, d)
+		}
+	}
+}
+
 // TestJulianDayMeeus checks the Julian days of Meeus ch. 7 (Example 7.a
 // and the table of p. 62) and the weekday of Example 7.e.
 func TestJulianDayMeeus(t *testing.T) {

@@ -52,14 +52,15 @@ func TestEventsPlaceFlagsRefusedWithSite(t *testing.T) {
 }
 
 // Without --tz the zone in force at the place is used, and a note on stderr
-// names it (zones: the tz database; nautical zones at sea, common practice).
+// names it and the place, with its hemispheres, as the README shows it
+// (zones: the tz database; nautical zones at sea, common practice).
 func TestEventsZoneFromCoordinates(t *testing.T) {
 	for _, tc := range []struct {
-		lat, lon, zone, note string
+		lat, lon, zone, note, at string
 	}{
-		{"23.13", "-82.38", "America/Havana", "America/Havana (UTC−05:00, CST)"}, // Havana, winter time on 1 March
-		{"-33.45", "-70.67", "America/Santiago", "America/Santiago (UTC−03:00)"}, // Santiago de Chile, summer time until April
-		{"0", "-30", "Etc/GMT+2", "Etc/GMT+2 (UTC−02:00)"},                       // mid-Atlantic
+		{"23.13", "-82.38", "America/Havana", "America/Havana (UTC−05:00, CST)", "23.1300° N, 82.3800° W"}, // Havana, winter time on 1 March
+		{"-33.45", "-70.67", "America/Santiago", "America/Santiago (UTC−03:00)", "33.4500° S, 70.6700° W"}, // Santiago de Chile, summer time until April
+		{"0", "-30", "Etc/GMT+2", "Etc/GMT+2 (UTC−02:00)", "0.0000° N, 30.0000° W"},                        // mid-Atlantic
 	} {
 		code, out, errOut := runCLI(t, "events", "--lat", tc.lat, "--lon", tc.lon, "--from", "2027-03-01", "--to", "2027-03-01",
 			"--kinds", "sunrise", "--format", "json")
@@ -73,9 +74,14 @@ func TestEventsZoneFromCoordinates(t *testing.T) {
 		if doc.Site.TimeZone != tc.zone {
 			t.Errorf("%s, %s: timezone %q, want %q", tc.lat, tc.lon, doc.Site.TimeZone, tc.zone)
 		}
-		if !strings.Contains(errOut, "no --tz given: using "+tc.note) {
-			t.Errorf("%s, %s: stderr %q does not name the zone used (%s)", tc.lat, tc.lon, errOut, tc.note)
+		if want := "heliocal: no --tz given: using " + tc.note + ", the zone in force at " + tc.at + " (give --tz to choose another)\n"; errOut != want {
+			t.Errorf("%s, %s: stderr %q, want %q", tc.lat, tc.lon, errOut, want)
 		}
+	}
+	// the README quotes the Havana note as printed
+	readme := strings.Join(strings.Fields(string(readmeBytes(t))), " ")
+	if want := "(`no --tz given: using America/Havana (UTC−05:00, CST), the zone in force at 23.1300° N, 82.3800° W`)"; !strings.Contains(readme, want) {
+		t.Errorf("README does not quote the note as %s", want)
 	}
 	// an explicit --tz wins and needs no note
 	code, out, errOut := runCLI(t, "events", "--lat", "23.13", "--lon", "-82.38", "--tz", "UTC", "--from", "2027-03-01", "--to", "2027-03-01", "--kinds", "sunrise")

@@ -4,6 +4,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"os"
+	"reflect"
 	"regexp"
 	"slices"
 	"strings"
@@ -16,7 +17,8 @@ import (
 // The JSON example of the README's tour is the output of the command it
 // names: each event line it shows is an event heliocal prints, every field
 // equal, the instants within 5 ms (the README shows them to the
-// millisecond; the search may move its last digit).
+// millisecond; the search may move its last digit); its notes (none) and
+// its site are those printed.
 func TestReadmeEventsExample(t *testing.T) {
 	shown := readmeJSON(t, func(l string) bool {
 		return strings.HasPrefix(l, `{"kind":"`) && strings.Contains(l, `"date":"2027-01-01"`) && strings.Contains(l, `"start":"2027-01-01T`)
@@ -35,6 +37,33 @@ func TestReadmeEventsExample(t *testing.T) {
 			t.Fatalf("only %d events printed", len(got))
 		}
 		samePrinted(t, fmt.Sprintf("event %d", i), want, got[i])
+	}
+	// the document around them: no notes, and the site as printed, every
+	// field equal and every field printed shown
+	m := regexp.MustCompile("(?s)```json\n(\\{\n  \"events\": \\[\n.*?\n\\})\n```").FindSubmatch(readmeBytes(t))
+	if m == nil {
+		t.Fatal("README: the events document is not where this test looks for it")
+	}
+	var doc, printed struct {
+		Notes []any
+		Site  map[string]any
+	}
+	if err := json.Unmarshal(m[1], &doc); err != nil {
+		t.Fatalf("README's events document: %v", err)
+	}
+	code, out, errOut := runCLI(t, "events", "--lat", "48.2", "--lon", "16.4", "--elev", "180", "--tz", "Europe/Vienna",
+		"--from", "2027-01-01", "--to", "2027-01-01", "--kinds", "sunrise,golden-hour,sun-altitude:10", "--format", "json")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	if err := json.Unmarshal([]byte(out), &printed); err != nil {
+		t.Fatal(err)
+	}
+	if doc.Notes == nil || len(doc.Notes) != 0 || printed.Notes == nil || len(printed.Notes) != 0 {
+		t.Errorf("notes: README %v, printed %v; want [] in both", doc.Notes, printed.Notes)
+	}
+	if !reflect.DeepEqual(doc.Site, printed.Site) {
+		t.Errorf("site: README %v, printed %v", doc.Site, printed.Site)
 	}
 }
 
@@ -348,5 +377,55 @@ func TestReadmePolarNightNote(t *testing.T) {
 	samePrinted(t, "note", want, got.Notes[0])
 	if len(got.Notes[0]) != len(want) {
 		t.Errorf("note %v has fields the README does not show: %v", got.Notes[0], want)
+	}
+}
+
+// The README's lighting note is what the command prints: at 48.2° N, 16.4° E
+// (Europe/Vienna, sea level) `--kinds lighting:16h` over 2027 has one
+// no-lamps-needed note, the README's, every field equal. (That the natural
+// day is 16 h or more there from about 11 June to 1 July is checked against
+// an outside source in TestLightingNoLampsNote.)
+func TestReadmeLightingNote(t *testing.T) {
+	m := regexp.MustCompile("`lamp_s`, and its notes say `(\\{\"kind\":\"lighting:16h\"[^`]*\\})`").FindSubmatch(readmeBytes(t))
+	if m == nil {
+		t.Fatal("README: the lighting note is not where this test looks for it")
+	}
+	var want map[string]any
+	if err := json.Unmarshal(m[1], &want); err != nil {
+		t.Fatal(err)
+	}
+	code, out, errOut := runCLI(t, "events", "--lat", "48.2", "--lon", "16.4", "--tz", "Europe/Vienna",
+		"--from", "2027-01-01", "--to", "2027-12-31", "--kinds", "lighting:16h", "--format", "json")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	var got struct{ Notes []map[string]any }
+	if err := json.Unmarshal([]byte(out), &got); err != nil {
+		t.Fatal(err)
+	}
+	var found []map[string]any
+	for _, n := range got.Notes {
+		if n["state"] == want["state"] {
+			found = append(found, n)
+		}
+	}
+	if len(found) != 1 || !reflect.DeepEqual(found[0], want) {
+		t.Errorf("printed %v, README %v", found, want)
+	}
+}
+
+// The README's far-future equinox: the March equinox of 2090 carries the
+// uncertainty the README gives (ΔT forecast uncertain by about 9 s per
+// decade after 2023, Stephenson, Morrison & Hohenkerk 2016: about a
+// minute by 2090; the September one, half a year later, 61 s).
+func TestReadmeFutureUncertainty(t *testing.T) {
+	m := regexp.MustCompile("equinox in 2090 `\"uncertainty_s\":(\\d+)`").FindSubmatch(readmeBytes(t))
+	if m == nil {
+		t.Fatal("README: the equinox of 2090 is not where this test looks for it")
+	}
+	got := printedEvents(t, "--lat", "48.2", "--lon", "16.4", "--tz", "Europe/Vienna",
+		"--from", "2090-01-01", "--to", "2090-12-31", "--kinds", "march-equinox")
+	if len(got) != 1 || fmt.Sprint(got[0]["uncertainty_s"]) != string(m[1]) {
+		t.Errorf("printed %v, want one March equinox with uncertainty_s %s, as the README", got, m[1])
 	}
 }

@@ -48,8 +48,8 @@ func TestLightingNoLampsNote(t *testing.T) {
 }
 
 // A date whose few minutes of lamps fall under min_duration is not silent:
-// its entry is a note with the state lamps-not-scheduled and
-// target_not_reached. At 48.2° N the natural day comes within 15 min of
+// its entry is an all-day note with the state lamps-not-scheduled,
+// target_not_reached and the day length, as the README says. At 48.2° N the natural day comes within 15 min of
 // 16 h in early June (USNO Duration of Daylight table for 48° N, a longest
 // day of about 16 h 05 min; value from memory).
 func TestLightingNotScheduledJSON(t *testing.T) {
@@ -68,6 +68,8 @@ feeds:
 	var doc struct {
 		Entries []struct {
 			Title, State string
+			AllDay       bool     `json:"all_day"`
+			DayLength    *float64 `json:"day_length_s"`
 			Lamp         *float64 `json:"lamp_s"`
 			Short        bool     `json:"target_not_reached"`
 		}
@@ -80,8 +82,10 @@ feeds:
 		switch {
 		case e.State == "lamps-not-scheduled":
 			notes++
-			if !e.Short || !strings.HasPrefix(e.Title, "Lamps not scheduled: ") {
-				t.Errorf("note %+v, want target_not_reached and a title saying so", e)
+			// an all-day entry with the day length (between 15 h 45 min
+			// and 16 h: within 15 min of the target)
+			if !e.Short || !strings.HasPrefix(e.Title, "Lamps not scheduled: ") || !e.AllDay || e.DayLength == nil || *e.DayLength < 56700 || *e.DayLength >= 57600 {
+				t.Errorf("note %+v, want an all-day entry with target_not_reached, the day length and a title saying so", e)
 			}
 		case e.Lamp != nil && *e.Lamp < 900:
 			t.Errorf("%q: a lamp period under the 15 min minimum", e.Title)

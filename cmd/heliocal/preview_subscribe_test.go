@@ -4,8 +4,10 @@ import (
 	"encoding/json"
 	"io"
 	"net/http"
+	"os"
 	"regexp"
 	"strconv"
+	"strings"
 	"testing"
 	"time"
 )
@@ -20,7 +22,8 @@ const subscribeKinds = "sunrise,sunset,civil-dawn,civil-dusk,golden-hour,moonris
 // some web calendars are reported to drop larger subscriptions, common
 // practice) whatever day of the year the calendar app fetches it on. Near
 // a pole, in December, the weeks after the request are poor in events and
-// a window sized from them was refused from May to September.
+// a window sized from them was refused from May to September; the days of
+// Utqiaġvik's link from 4 December are those docs/serving.md gives.
 // Places: Utqiaġvik, Alaska (71.29° N, 156.8° W) and Tromsø, Norway
 // (69.65° N, 18.96° E), from their published coordinates; Vienna (48.2° N,
 // 16.4° E), where the events are spread evenly over the year: its link is
@@ -40,6 +43,17 @@ func TestSubscribeLinkFitsAllYear(t *testing.T) {
 		t.Run(tc.name, func(t *testing.T) {
 			q := tc.place + "&kinds=" + tc.kinds
 			days := subscribeDays(t, ts.URL+"/at.json?"+q+"&start=2026-12-04")
+			if tc.name == "utqiagvik" {
+				// docs/serving.md gives this link's days
+				doc, err := os.ReadFile("../../docs/serving.md")
+				if err != nil {
+					t.Fatal(err)
+				}
+				text := strings.Join(strings.Fields(string(doc)), " ")
+				if want := "at 71.29° N with sunrise, sunset, civil twilight, golden hour, moonrise and moonset, " + strconv.Itoa(days) + " days from December"; !strings.Contains(text, want) {
+					t.Errorf("docs/serving.md does not say %q", want)
+				}
+			}
 			if tc.even {
 				_, month := status(t, ts.URL+"/at.ics?"+q+"&start=2026-12-04&days=28")
 				if est := min(365, 900_000*28/len(month)); days < est {

@@ -3,11 +3,13 @@ package main
 import (
 	"bytes"
 	"context"
+	"encoding/json"
 	"io"
 	"net"
 	"net/http"
 	"os"
 	"path/filepath"
+	"regexp"
 	"strings"
 	"sync"
 	"syscall"
@@ -207,5 +209,67 @@ func TestServeReloadRefusesInvalidConfig(t *testing.T) {
 	cancel()
 	if code := <-done; code != 0 {
 		t.Errorf("serve exited %d:\n%s", code, logs.String())
+	}
+}
+
+// serve's log as docs/serving.md describes it: with --log-format json every
+// line is one JSON object whose durations (the access log's duration, the
+// shutdown's timeout) are whole nanoseconds, as log/slog's JSON handler
+// writes a time.Duration; the text format writes them with their unit
+// (the shutdown's 20 s as "timeout=20s").
+func TestServeLogFormats(t *testing.T) {
+	path := writeConfig(t, reloadSite)
+	for _, format := range []string{"json", "text"} {
+		t.Run(format, func(t *testing.T) {
+			addr := freePort(t)
+			ctx, cancel := context.WithCancel(context.Background())
+			defer cancel()
+			logs := &lockedBuffer{}
+			done := make(chan int, 1)
+			go func() {
+				done <- run(ctx, []string{"serve", "--config", path, "--listen", addr, "--log-format", format}, io.Discard, logs, noEnv)
+			}()
+			status := func(p string) int {
+				resp, err := http.Get("http://" + addr + p)
+				if err != nil {
+					return 0
+				}
+				resp.Body.Close()
+				return resp.StatusCode
+			}
+			waitFor(t, logs, "the first build", func() bool { return status("/healthz") == http.StatusOK })
+			if code := status("/north-sun.ics"); code != http.StatusOK {
+				t.Fatalf("north-sun.ics: %d", code)
+			}
+			cancel()
+			if code := <-done; code != 0 {
+				t.Fatalf("serve exited %d:\n%s", code, logs.String())
+			}
+			var request, shutdown string
+			for _, l := range strings.Split(strings.TrimSuffix(logs.String(), "\n"), "\n") {
+				if strings.Contains(l, "/north-sun.ics") {
+					request = l
+				}
+				if strings.Contains(l, "shutting down") {
+					shutdown = l
+				}
+				if format == "json" && !json.Valid([]byte(l)) {
+					t.Errorf("not a JSON object: %s", l)
+				}
+			}
+			if format == "json" {
+				var req, stop struct{ Duration, Timeout json.Number }
+				if err := json.Unmarshal([]byte(request), &req); err != nil || !regexp.MustCompile(`^[1-9]\d*$`).MatchString(string(req.Duration)) {
+					t.Errorf("access log line %q (%v): want a duration in whole nanoseconds", request, err)
+				}
+				if err := json.Unmarshal([]byte(shutdown), &stop); err != nil || stop.Timeout != "20000000000" {
+					t.Errorf("shutdown line %q (%v): want the timeout 20000000000 (20 s in nanoseconds)", shutdown, err)
+				}
+				return
+			}
+			if !regexp.MustCompile(` duration=\d+(\.\d+)?(ns|µs|ms|s) `).MatchString(request) || !strings.Contains(shutdown, " timeout=20s") {
+				t.Errorf("access log line %q, shutdown line %q: want durations with their unit", request, shutdown)
+			}
+		})
 	}
 }

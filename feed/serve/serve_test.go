@@ -479,6 +479,22 @@ func TestAccessLog(t *testing.T) {
 	if line["params"] != "token,lat,x y" {
 		t.Errorf("access log params = %v, want the names token,lat,x y", line["params"])
 	}
+
+	// The remote address is the connection's: behind a reverse proxy the
+	// proxy's (docs/serving.md), whatever X-Forwarded-For says, even from a
+	// proxy trusted for X-Forwarded-Host and -Proto.
+	proxied, _ := newTestServer(t, Options{TrustedProxies: []string{"192.0.2.0/24"}, AccessLogger: slog.New(slog.NewJSONHandler(&lockedBuf{b: &buf, mu: &mu}, nil))})
+	for _, srv := range []*Server{s, proxied} {
+		buf.Reset()
+		body(t, get(t, srv.Handler(), "GET", "/feeds/meadowbrook-sun.ics", "X-Forwarded-For", "203.0.113.7"))
+		line = nil
+		if err := json.Unmarshal(buf.Bytes(), &line); err != nil {
+			t.Fatalf("access log %q: %v", buf.String(), err)
+		}
+		if line["remote"] != "192.0.2.1:1234" { // httptest.NewRequest's RemoteAddr
+			t.Errorf("access log remote = %v, want the connection's 192.0.2.1:1234", line["remote"])
+		}
+	}
 }
 
 type lockedBuf struct {

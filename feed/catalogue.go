@@ -85,7 +85,14 @@ func (c *Catalogue) Sky() *Sky { return c.sky }
 
 // window returns the first and last local dates of a feed (00:00 UTC).
 func (c *Catalogue) window(f *config.Feed, s *config.Site) (time.Time, time.Time) {
-	today := localDate(c.opts.Now, s.TimeZone.Location)
+	return WindowAt(f, s, c.opts.Now)
+}
+
+// WindowAt returns the first and last local dates (00:00 UTC) of the window
+// of feed f of site s built at now: days_back before and days_ahead after
+// the date now is in the site's zone, as a catalogue of Options.Now builds it.
+func WindowAt(f *config.Feed, s *config.Site, now time.Time) (first, last time.Time) {
+	today := localDate(now, s.TimeZone.Location)
 	return today.AddDate(0, 0, -f.DaysBack), today.AddDate(0, 0, f.DaysAhead)
 }
 

@@ -126,36 +126,52 @@ func chartsFor(cfg *config.Config, now time.Time, feeds *feed.Sky) func(context.
 			return nil, err
 		}
 		chart.Today = today
-		until := make(map[string]time.Time, len(trimmed))
-		for _, t := range trimmed {
-			until[t.Feed.ID] = t.To
+		held := make(map[string]feedDates)
+		for i := range cfg.Feeds {
+			if f := &cfg.Feeds[i]; f.Site == site.ID {
+				d := feedDates{}
+				d.first, d.last = feed.WindowAt(f, &site, now)
+				held[f.ID] = d
+			}
 		}
-		levels, kinds := chartKinds(cfg, site.ID, until)
-		// One search for the clock's kinds and the feeds' kinds: the
-		// site's crossings of the Sun (over its skyline too) are found once.
+		for _, t := range trimmed {
+			d := held[t.Feed.ID]
+			d.to = t.To
+			held[t.Feed.ID] = d
+		}
+		levels, kinds, heldNotes := chartKinds(cfg, site.ID, held, first, last)
+		chart.Held = heldNotes
+		// One search for the clock's kinds and the kinds of the feeds that
+		// hold every date of the chart: the site's crossings of the Sun
+		// (over its skyline too) are found once. A kinds entry of a feed
+		// that holds fewer dates is found over those.
 		var specs []config.KindSpec
 		for _, name := range []string{"sunrise", "sunset", "new-moon", "full-moon"} {
 			specs = append(specs, config.KindSpec{Kind: chartKind(name)})
 		}
-		var short []chartSpec // the kinds of shortened feeds
+		var fewer []chartSpec
 		for _, k := range kinds {
-			if k.until.IsZero() {
+			if k.dates == (feedDates{}) {
 				specs = append(specs, k.KindSpec)
 			} else {
-				short = append(short, k)
+				fewer = append(fewer, k)
 			}
 		}
 		events, _, err := sky.EventsFor(ctx, place, specs, first, last)
 		if err != nil {
 			return nil, err
 		}
-		for _, k := range short {
-			evs, _, err := sky.EventsFor(ctx, place, []config.KindSpec{k.KindSpec}, first, last)
+		for _, k := range fewer {
+			from, to := laterOf(k.dates.first, first), earlierOf(k.dates.last, last)
+			if to.Before(from) {
+				continue
+			}
+			evs, _, err := sky.EventsFor(ctx, place, []config.KindSpec{k.KindSpec}, from, to)
 			if err != nil {
 				return nil, err
 			}
 			events = append(events, slices.DeleteFunc(evs, func(e feed.Event) bool {
-				return entryDate(e, &k.KindSpec, site.TimeZone.Location).After(k.until)
+				return !k.dates.holds(&e, &k.KindSpec, site.TimeZone.Location)
 			})...)
 		}
 		// The feeds' kinds entries may keep the same event twice (the same
@@ -210,12 +226,66 @@ type chartLevel struct {
 	Filtered bool
 }
 
-// chartSpec is a kinds entry whose events the chart draws, through the
-// date until when its feed was shortened to it (service.oversize: trim),
-// else through the chart's end (until zero).
+// chartSpec is a kinds entry whose events the chart draws, on the dates its
+// feed holds (dates), or on every date of the chart (dates zero) when the
+// feed holds them all.
 type chartSpec struct {
 	config.KindSpec
-	until time.Time
+	dates feedDates
+}
+
+// feedDates are the dates a feed holds, as it is built and published: the
+// events of the local dates first..last of its window (00:00 UTC), and of
+// their entries, when service.oversize: trim shortened the feed, those
+// dated to (its last date then) or before. A feed not shortened has to
+// zero.
+type feedDates struct {
+	first, last, to time.Time
+}
+
+// holds reports whether the feed keeps an entry of event e of its kinds
+// entry spec: e is on a date of its window, and its entry (dated as
+// entryDate says) is not after the date the feed was shortened to.
+func (d feedDates) holds(e *feed.Event, spec *config.KindSpec, loc *time.Location) bool {
+	if e.Date.Before(d.first) || e.Date.After(d.last) {
+		return false
+	}
+	return d.to.IsZero() || !entryDate(*e, spec, loc).After(d.to)
+}
+
+// within is how the chart of the dates first..last draws a feed of the
+// dates d: zero when the feed holds every date of the chart (its kinds are
+// drawn over the whole chart), else d. A feed shortened to a date after
+// the chart's last holds every entry of the chart's events (an offset of
+// at most 12 h moves an entry's date by a day at most).
+func (d feedDates) within(first, last time.Time) feedDates {
+	if !d.first.After(first) && !d.last.Before(last) && (d.to.IsZero() || d.to.After(last)) {
+		return feedDates{}
+	}
+	return d
+}
+
+// shown is the last date of the feed's entries: the window's, or the date it
+// was shortened to.
+func (d feedDates) shown() time.Time {
+	if d.to.IsZero() {
+		return d.last
+	}
+	return d.to
+}
+
+func laterOf(a, b time.Time) time.Time {
+	if a.After(b) {
+		return a
+	}
+	return b
+}
+
+func earlierOf(a, b time.Time) time.Time {
+	if a.Before(b) {
+		return a
+	}
+	return b
 }
 
 // entryDate is the local date of the entry a feed makes of event e of the
@@ -238,15 +308,19 @@ func entryDate(e feed.Event, spec *config.KindSpec, loc *time.Location) time.Tim
 // Each entry keeps the options that set which events its feed has (the
 // lamps' end of the day, their limits and minimum, what counts as natural
 // light; the dark window's Moon; min_duration, the date filters, all_day
-// with its offset), so that the chart draws what the feed keeps. Entries
-// with the same such options are computed once. The entries of a feed
-// shortened to fit its size (until has its last date) are drawn through
-// that date only.
-func chartKinds(cfg *config.Config, siteID string, until map[string]time.Time) ([]chartLevel, []chartSpec) {
+// with its offset), so that the chart draws what the feed keeps, and the
+// dates its feed holds (held, by feed id: its window, and where
+// service.oversize: trim shortened it), so that it draws them on those
+// dates only when they are fewer than the chart's, first..last. Entries
+// with the same such options and dates are computed once. It also says,
+// for the caption, which feeds hold fewer dates than the chart and what of
+// each the chart draws.
+func chartKinds(cfg *config.Config, siteID string, held map[string]feedDates, first, last time.Time) ([]chartLevel, []chartSpec, []publish.HeldDates) {
 	var levels []chartLevel
 	var specs []chartSpec
+	var notes []publish.HeldDates
 	type specKey struct {
-		until                                 time.Time
+		held                                  feedDates
 		kind                                  string
 		maxLit                                float64
 		min, offset                           config.Duration
@@ -260,17 +334,28 @@ func chartKinds(cfg *config.Config, siteID string, until map[string]time.Time) (
 		if f.Site != siteID {
 			continue
 		}
+		dates := held[f.ID].within(first, last)
+		var what []string // what the chart draws of the feed, for the caption
 		for _, ks := range f.Kinds {
 			k := ks.Kind
+			var w string
 			switch {
-			case k.Name == config.KindLighting || k.Name == "dark-window" || k.Name == "photoperiod":
+			case k.Name == config.KindLighting:
+				w = "lamp periods"
+			case k.Name == "dark-window":
+				w = "dark windows"
+			case k.Name == "photoperiod":
+				w = "photoperiod crossings"
 			case k.IsYearly() && (!k.IsMoon() || k.Family() == config.FamilyEclipse):
+				w = "red lines"
 			default:
 				continue
 			}
-			end := until[f.ID]
-			// a shortened feed keeps only some crossings, as a filter does
-			filtered := !ks.Filter().IsZero() || !end.IsZero()
+			if !slices.Contains(what, w) {
+				what = append(what, w)
+			}
+			// a feed of fewer dates keeps only some crossings, as a filter does
+			filtered := !ks.Filter().IsZero() || dates != (feedDates{})
 			if k.Name == "photoperiod" {
 				if i, ok := level[k.DayLength]; !ok {
 					level[k.DayLength] = len(levels)
@@ -290,15 +375,19 @@ func chartKinds(cfg *config.Config, siteID string, until map[string]time.Time) (
 			if !filtered {
 				sp.Offset = 0 // it moves only the date a filter reads (an all-day entry's)
 			}
-			key := specKey{end, k.String(), sp.MaxIllumination, sp.MinDuration, sp.Offset, sp.AllDay, sp.Lamps, sp.Natural, sp.LatestOff, sp.EarliestOn,
+			key := specKey{dates, k.String(), sp.MaxIllumination, sp.MinDuration, sp.Offset, sp.AllDay, sp.Lamps, sp.Natural, sp.LatestOff, sp.EarliestOn,
 				strings.Join(sp.Weekdays, ","), strings.Join(sp.Months, ","), strings.Join(sp.Dates, ",")}
 			if !seen[key] {
-				specs = append(specs, chartSpec{sp, end})
+				specs = append(specs, chartSpec{sp, dates})
 			}
 			seen[key] = true
 		}
+		if dates != (feedDates{}) && len(what) > 0 {
+			notes = append(notes, publish.HeldDates{Feed: f.ID, What: what,
+				First: laterOf(dates.first, first), Last: earlierOf(dates.shown(), last)})
+		}
 	}
-	return levels, specs
+	return levels, specs, notes
 }
 
 // chartKind parses a kind name the chart always draws.

@@ -2,6 +2,7 @@ package main
 
 import (
 	"context"
+	"fmt"
 	"reflect"
 	"strings"
 	"testing"
@@ -315,4 +316,150 @@ feeds:
 	if len(c.Marks) == 0 || len(c.Lamps) == 0 || len(c.Dark) == 0 {
 		t.Errorf("%d marks, %d lamp pieces, %d dark-window pieces drawn (the feed's last of each: %v): the test checks none of some", len(c.Marks), len(c.Lamps), len(c.Dark), lastOf)
 	}
+}
+
+// A feed with a shorter window than the chart's year is drawn on the dates
+// it holds: its lamp periods, dark windows and photoperiod crossings start
+// and stop where its entries do (the last of each kind on the date of the
+// feed's last entry of that kind), and the caption says so; the same kinds
+// in a feed whose window is longer than the chart are drawn over the
+// chart's whole year. The invented sites are at the USNO coordinates of
+// Washington, DC, where lamps bring every day of the winter and spring up
+// to 14 h and the day length crosses 12 h in March and September.
+func TestChartDrawsFeedWindow(t *testing.T) {
+	cfg, err := config.Parse(strings.NewReader(`
+sites:
+  - {id: mall, latitude: 38.889444, longitude: -77.035278, elevation: 0, timezone: America/New_York}
+  - {id: ellipse, latitude: 38.889444, longitude: -77.035278, elevation: 0, timezone: America/New_York}
+feeds:
+  - {id: mall-spring, site: mall, days_back: 7, days_ahead: 120, kinds: ["lighting:14h", "photoperiod:12h", dark-window]}
+  - {id: ellipse-long, site: ellipse, days_back: 40, days_ahead: 400, kinds: ["lighting:14h", "photoperiod:12h", dark-window]}
+`), "yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	now := time.Date(2024, 1, 1, 15, 0, 0, 0, time.UTC)
+	srcs, opts, err := build(cfg, now, layout{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	charts := map[string]*publish.SiteChart{}
+	draw := opts.Charts
+	opts.Charts = func(ctx context.Context, s feed.Site, trimmed []publish.Trimmed) (*publish.SiteChart, error) {
+		c, err := draw(ctx, s, trimmed)
+		charts[s.ID] = c
+		return c, err
+	}
+	b, err := publish.Render(context.Background(), srcs, opts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	page := string(b.File(publish.IndexName).Data)
+	day := func(m time.Month, d int) time.Time { return time.Date(2024, m, d, 0, 0, 0, 0, time.UTC) }
+
+	// the published feed's entries: the first and last date each kind's
+	// entries are drawn on (a span's pieces split at midnight, as the
+	// chart draws them), and the dates of its photoperiod crossings
+	cal, err := srcs[0].Build(context.Background())
+	if err != nil {
+		t.Fatal(err)
+	}
+	if first, last := cal.FirstDate, cal.LastDate; !first.Equal(time.Date(2023, 12, 25, 0, 0, 0, 0, time.UTC)) || !last.Equal(day(4, 30)) {
+		t.Fatalf("feed window %v to %v, want 2023-12-25 to 2024-04-30", first, last)
+	}
+	loc := cfg.Sites[0].TimeZone.Location
+	type reach struct{ first, last, lastEntry time.Time }
+	feedReach := map[string]*reach{}
+	var crossings []time.Time
+	for _, e := range cal.Entries {
+		if e.Facts.Note {
+			continue
+		}
+		k, err := config.ParseKind(e.Kind)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if k.Name == "photoperiod" {
+			crossings = append(crossings, e.Date)
+			continue
+		}
+		r := feedReach[k.Name]
+		if r == nil {
+			r = &reach{first: e.Date}
+			feedReach[k.Name] = r
+		}
+		r.lastEntry = e.Date
+		for _, s := range clockSpans(e.Start, e.End, loc) {
+			if s.Date.After(r.last) {
+				r.last = s.Date
+			}
+		}
+	}
+	// lamps every evening or morning of the window, to its last date
+	if r := feedReach[config.KindLighting]; r == nil || !r.lastEntry.Equal(cal.LastDate) {
+		t.Fatalf("the feed's lamp periods %+v, want some to its last date: the test checks nothing", r)
+	}
+	if r := feedReach["dark-window"]; r == nil || r.lastEntry.Before(day(4, 20)) {
+		t.Fatalf("the feed's dark windows %+v, want some in its last weeks", r)
+	}
+	if len(crossings) != 1 || crossings[0].Month() != time.March {
+		t.Fatalf("the feed's 12 h crossings on %v, want the March one alone", crossings)
+	}
+
+	short := charts["mall"]
+	for what, pieces := range map[string][]publish.ClockSpan{config.KindLighting: short.Lamps, "dark-window": short.Dark} {
+		r := feedReach[what]
+		var first, last time.Time
+		for _, s := range pieces {
+			if first.IsZero() || s.Date.Before(first) {
+				first = s.Date
+			}
+			if s.Date.After(last) {
+				last = s.Date
+			}
+		}
+		if !first.Equal(r.first) || !last.Equal(r.last) {
+			t.Errorf("%s drawn from %s to %s, the feed's from %s to %s (its last entry on %s)", what,
+				first.Format(time.DateOnly), last.Format(time.DateOnly), r.first.Format(time.DateOnly), r.last.Format(time.DateOnly), r.lastEntry.Format(time.DateOnly))
+		}
+	}
+	if got := drawnCrossings(short); fmt.Sprint(got) != fmt.Sprint(crossings) {
+		t.Errorf("12 h crossings drawn on %v, the feed has them on %v", got, crossings)
+	}
+	if want := "Lamp periods, photoperiod crossings and dark windows of the feed mall-spring drawn from 25 Dec 2023 to 30 Apr, the dates it holds."; !strings.Contains(page, want) {
+		t.Errorf("the caption does not say %q", want)
+	}
+
+	// a window longer than the chart: drawn from its first date to its
+	// last, both crossings, and no word of the feed's dates
+	long := charts["ellipse"]
+	first, last := long.Days[0].Date, long.Days[len(long.Days)-1].Date
+	var lampsFirst, lampsLast bool
+	for _, s := range long.Lamps {
+		lampsFirst = lampsFirst || s.Date.Equal(first)
+		lampsLast = lampsLast || s.Date.Equal(last)
+	}
+	if !lampsFirst || !lampsLast {
+		t.Errorf("the long feed's lamps drawn on the chart's first date %v, on its last %v: want both", lampsFirst, lampsLast)
+	}
+	if got := drawnCrossings(long); len(got) != 2 || got[0].Month() != time.March || got[1].Month() != time.September {
+		t.Errorf("the long feed's 12 h crossings drawn on %v, want March and September", got)
+	}
+	if len(long.Held) != 0 || strings.Contains(page, "ellipse-long drawn") {
+		t.Errorf("the long feed said to hold fewer dates than the chart: %+v", long.Held)
+	}
+}
+
+// drawnCrossings are the dates the chart c marks a photoperiod crossing on,
+// as publish marks them.
+func drawnCrossings(c *publish.SiteChart) []time.Time {
+	var out []time.Time
+	for _, lv := range c.Levels {
+		for i := 1; i < len(c.Days); i++ {
+			if (c.Days[i-1].Daylight >= lv.Length) != (c.Days[i].Daylight >= lv.Length) && (lv.Keeps == nil || lv.Keeps(c.Days[i].Date)) {
+				out = append(out, c.Days[i].Date)
+			}
+		}
+	}
+	return out
 }

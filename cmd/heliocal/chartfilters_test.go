@@ -73,7 +73,7 @@ func TestChartDrawsWhatFeedsKeep(t *testing.T) {
 				if err != nil {
 					t.Fatal(err)
 				}
-				for what, n := range checkChartAgainstFeeds(t, path, cfg, site, c) {
+				for what, n := range checkChartAgainstFeeds(t, path, cfg, site, c, tc.now) {
 					drawn[what] += n
 				}
 			}
@@ -88,10 +88,11 @@ func TestChartDrawsWhatFeedsKeep(t *testing.T) {
 }
 
 // checkChartAgainstFeeds compares the chart c of site with the entries of
-// its feeds listed by events --feed over the chart's dates, and returns how
+// its feeds listed by events --feed (over each feed's window, built at now)
+// on the chart's dates, and returns how
 // many of each it compared: lamp periods, dark windows, marks and
 // photoperiod crossings.
-func checkChartAgainstFeeds(t *testing.T, path string, cfg *config.Config, site *config.Site, c *publish.SiteChart) map[string]int {
+func checkChartAgainstFeeds(t *testing.T, path string, cfg *config.Config, site *config.Site, c *publish.SiteChart, now time.Time) map[string]int {
 	t.Helper()
 	loc := site.TimeZone.Location
 	first, last := c.Days[0].Date, c.Days[len(c.Days)-1].Date
@@ -109,10 +110,13 @@ func checkChartAgainstFeeds(t *testing.T, path string, cfg *config.Config, site 
 				Note       bool
 			} `json:"entries"`
 		}
+		// the feed over its own window as built at now: the chart draws its
+		// kinds on the dates of the chart the feed holds
+		from, to := feed.WindowAt(&f, site, now)
 		runJSON(t, &doc, "-c", path, "events", "--feed", f.ID, "--format", "json",
-			"--from", first.Format(time.DateOnly), "--to", last.Format(time.DateOnly))
+			"--from", from.Format(time.DateOnly), "--to", to.Format(time.DateOnly))
 		for _, e := range doc.Entries {
-			if e.Note || e.Kind == "plan" {
+			if e.Note || e.Kind == "plan" || e.Date < first.Format(time.DateOnly) || e.Date > last.Format(time.DateOnly) {
 				continue
 			}
 			k, err := config.ParseKind(e.Kind)

@@ -37,6 +37,20 @@ type SiteChart struct {
 	// Location is the site's time zone: Marks and Phases are drawn and
 	// dated on its local dates, as Days are. Nil means UTC.
 	Location *time.Location
+	// Held are the site's feeds that hold fewer dates than the chart has (a
+	// shorter window, or shortened to fit their size): their lamp periods,
+	// dark windows, photoperiod crossings and marks are drawn on their own
+	// dates only, which the caption says.
+	Held []HeldDates
+}
+
+// HeldDates are the dates of the chart a feed holds, First..Last (local
+// dates at 00:00 UTC), and What the chart draws of it on those dates only
+// ("lamp periods", "dark windows").
+type HeldDates struct {
+	Feed        string
+	What        []string
+	First, Last time.Time
 }
 
 // ChartDay is one local day of a SiteChart. Each duration is the time the
@@ -155,6 +169,7 @@ type chartView struct {
 	Thresholds []thresholdView
 	Phases     []phaseView
 	Today      *todayView
+	Held       string // the dates the feeds of shorter windows are drawn on, in words
 }
 
 type tickView struct {
@@ -295,6 +310,7 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 		Thresholds: thresholdViews(days, c.Levels),
 		Phases:     phaseViews(c.Phases, c.Location, first, last),
 		Today:      todayMark(today, days),
+		Held:       heldText(c.Held, first, last),
 	}
 	ahead := days // the summary speaks of the year from today
 	if today > 0 {
@@ -312,6 +328,38 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 		v.Summary += "."
 	}
 	return v
+}
+
+// heldText says, for each feed that holds fewer dates than the chart
+// first..last, on which dates its kinds are drawn: "Lamp periods of the
+// feed fernhollow-lamps drawn from 8 Jan to 14 Jul, the dates it holds."
+func heldText(held []HeldDates, first, last time.Time) string {
+	var b strings.Builder
+	for _, h := range held {
+		if len(h.What) == 0 {
+			continue
+		}
+		what := strings.Join(h.What[:len(h.What)-1], ", ")
+		if what != "" {
+			what += " and "
+		}
+		what += h.What[len(h.What)-1]
+		from, to := chartDate(h.First, first, last), chartDate(h.Last, first, last)
+		b.WriteString(" ")
+		b.WriteString(strings.ToUpper(what[:1]) + what[1:])
+		fmt.Fprintf(&b, " of the feed %s ", h.Feed)
+		switch {
+		case h.Last.Before(h.First):
+			b.WriteString("not drawn: it holds none of the chart's dates.")
+		case !h.First.After(first):
+			fmt.Fprintf(&b, "drawn to %s, where it ends.", to)
+		case !h.Last.Before(last):
+			fmt.Fprintf(&b, "drawn from %s, where it begins.", from)
+		default:
+			fmt.Fprintf(&b, "drawn from %s to %s, the dates it holds.", from, to)
+		}
+	}
+	return strings.TrimPrefix(b.String(), " ")
 }
 
 // wallClock is the local clock reading of t in loc written as a UTC time,

@@ -313,7 +313,7 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{
 <span class="key lamp"></span>lamp periods{{end}}{{if .Dark}},
 <span class="key dark"></span>dark windows{{end}}{{if .Thresholds}},
 <span class="key thr"></span>photoperiod threshold crossings{{end}}{{if .Today}},
-<span class="key today"></span>today{{if ne .Today.PastW "0"}} (the weeks before it shaded){{end}}{{end}}; along the top, ○ new and <span style="color:#e8c547">●</span> full Moon.{{if .Marks}} <span class="key mark"></span>Red lines:{{range $i, $m := .Marks}}{{if $i}};{{end}} {{$m.Label}} ({{$m.Date}}){{end}}.{{end}}</figcaption>
+<span class="key today"></span>today{{if ne .Today.PastW "0"}} (the weeks before it shaded){{end}}{{end}}; along the top, ○ new and <span style="color:#e8c547">●</span> full Moon.{{if .Marks}} <span class="key mark"></span>Red lines:{{range $i, $m := .Marks}}{{if $i}};{{end}} {{$m.Label}} ({{$m.Date}}){{end}}.{{end}}{{with .Held}} {{.}}{{end}}</figcaption>
 </figure>
 {{end}}<table>
 <thead><tr><th>Feed</th><th class="num">Events</th><th class="num">Size</th><th>Subscribe</th></tr></thead>

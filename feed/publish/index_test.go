@@ -522,3 +522,33 @@ func TestChartMarkOnLocalDate(t *testing.T) {
 		t.Errorf("solstice mark dated %q in column %d (phase %q at %s); want 22 Dec, column 21 (the 22nd)", v.Marks[0].Date, col, v.Phases[0].Date, v.Phases[0].X)
 	}
 }
+
+// The caption says on which dates the kinds of a feed holding fewer dates
+// than the chart are drawn: to its last date when it starts before the
+// chart, from its first when it ends after it, else both; a feed shortened
+// to before the chart's first date is said to be drawn on none.
+func TestChartCaptionSaysFeedDates(t *testing.T) {
+	d := func(y int, m time.Month, day int) time.Time { return time.Date(y, m, day, 0, 0, 0, 0, time.UTC) }
+	first, last := d(2026, 12, 4), d(2027, 12, 31) // a chart of four weeks and a year
+	for _, tc := range []struct {
+		name string
+		held HeldDates
+		want string
+	}{
+		{"ends", HeldDates{Feed: "lamps", What: []string{"lamp periods"}, First: first, Last: d(2027, 6, 2)},
+			"Lamp periods of the feed lamps drawn to 2 Jun, where it ends."},
+		{"begins", HeldDates{Feed: "dark", What: []string{"dark windows", "red lines"}, First: d(2026, 12, 25), Last: last},
+			"Dark windows and red lines of the feed dark drawn from 25 Dec 2026, where it begins."},
+		{"both", HeldDates{Feed: "spring", What: []string{"lamp periods", "photoperiod crossings", "dark windows"}, First: d(2026, 12, 25), Last: d(2027, 4, 30)},
+			"Lamp periods, photoperiod crossings and dark windows of the feed spring drawn from 25 Dec 2026 to 30 Apr, the dates it holds."},
+		{"none", HeldDates{Feed: "old", What: []string{"red lines"}, First: first, Last: d(2026, 11, 30)},
+			"Red lines of the feed old not drawn: it holds none of the chart's dates."},
+	} {
+		if got := heldText([]HeldDates{tc.held}, first, last); got != tc.want {
+			t.Errorf("%s: %q, want %q", tc.name, got, tc.want)
+		}
+	}
+	if got := heldText(nil, first, last); got != "" {
+		t.Errorf("no feed of fewer dates: %q, want nothing", got)
+	}
+}

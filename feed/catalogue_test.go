@@ -377,9 +377,10 @@ func TestCautions(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if want := "Our own words.\n\n" + strings.Join(kindMeanings(s, specs), "\n") + "\n\n" + CalendarCaution; cal.Description != want ||
-		strings.Count(cal.Description, "local rules") != 1 || !strings.Contains(CalendarCaution, "local rules") ||
-		!strings.Contains(CalendarCaution, "hunting hours") || !strings.Contains(CalendarCaution, cautionEyes) {
+	caution := CalendarCaution(PlaceOf(s).Observer)
+	if want := "Our own words.\n\n" + strings.Join(kindMeanings(s, specs), "\n") + "\n\n" + caution; cal.Description != want ||
+		strings.Count(cal.Description, "local rules") != 1 || !strings.Contains(caution, "local rules") ||
+		!strings.Contains(caution, "hunting hours") || !strings.Contains(caution, cautionEyes) {
 		t.Errorf("calendar description %q", cal.Description)
 	}
 	for _, e := range cal.Entries {

@@ -286,7 +286,7 @@ func TestEclipseCautionInCalendarDescription(t *testing.T) {
 		d := CalendarDescription(s, &config.Feed{ID: "f", Kinds: specs})
 		has := strings.Count(d, "ISO 12312-2") == 1 && strings.Contains(d, "During a solar eclipse, never look at the Sun without eye protection") &&
 			strings.HasSuffix(d, "Follow the advice of your local health authority.")
-		if has != c.want || strings.Count(d, "ISO 12312-2") > 1 || !strings.Contains(d, CalendarCaution) {
+		if has != c.want || strings.Count(d, "ISO 12312-2") > 1 || !strings.Contains(d, CalendarCaution(PlaceOf(s).Observer)) {
 			t.Errorf("%v: eclipse caution %v, want %v:\n%s", c.kinds, has, c.want, d)
 		}
 	}
@@ -536,5 +536,107 @@ func TestPhotoperiodLengthNotTheThresholdWhenBelow(t *testing.T) {
 	}
 	if len(got) != 1 || got[0] != "2027-03-24: "+want {
 		t.Errorf("entries %q, want one on 2027-03-24: %q", got, want)
+	}
+}
+
+// What a calendar says sunrise, sunset, moonrise, moonset and a dark sky
+// are follows what is computed at the site: over a flat horizon the upper
+// limb on it with the standard refraction (and the dip of the elevation);
+// over a horizon altitude (`horizon: 2`, or a sea horizon below eye level
+// seen from a height) the upper limb over that altitude, with the
+// refraction at it and no dip; over a skyline its first and last
+// appearance; with pressure_hpa or temperature_c the refraction for that
+// air, which the calendar's caution names too.
+func TestRiseSetMeaningFollowsSite(t *testing.T) {
+	cold := func(s *config.Site) *config.Site {
+		p, temp := 1030.0, -20.0
+		s.Pressure, s.Temperature = &p, &temp
+		return s
+	}
+	flat := func() *config.Site {
+		s := site(t, "flat", -41.35, 172.98, "Pacific/Auckland")
+		s.Elevation = 90
+		return s
+	}
+	raised := func(h float64) *config.Site {
+		s := flat()
+		s.Horizon = h
+		return s
+	}
+	ridge := func() *config.Site {
+		s := flat()
+		s.Skyline = [][2]float64{{0, 3}, {100, 12}, {150, 4}, {260, 15}, {300, 3}}
+		return s
+	}
+	var specs []config.KindSpec
+	for _, k := range mustKinds(t, "sunrise", "sunset", "moonrise", "moonset", "dark-window") {
+		specs = append(specs, config.KindSpec{Kind: k})
+	}
+	const std, air = "standard atmospheric refraction;", "refraction for 1030 hPa and −20 °C;"
+	for _, c := range []struct {
+		name    string
+		s       *config.Site
+		want    []string // the meanings of sunrise, sunset, moonrise, moonset, dark sky
+		caution string   // the refraction the caution names
+	}{
+		{"flat", flat(), []string{
+			"Sunrise: the Sun's upper limb appears on the horizon (standard refraction).",
+			"Sunset: the Sun's upper limb disappears below the horizon (standard refraction).",
+			"Moonrise: the Moon's upper limb appears on the horizon (standard refraction).",
+			"Moonset: the Moon's upper limb disappears below the horizon (standard refraction).",
+			"Dark sky: the Sun is more than 18° below the horizon and the Moon is below the horizon.",
+		}, std},
+		{"horizon 2°", raised(2), []string{
+			"Sunrise: the Sun's upper limb appears over the site's horizon, 2° high (standard refraction for that altitude).",
+			"Sunset: the Sun's upper limb disappears behind the site's horizon, 2° high (standard refraction for that altitude).",
+			"Moonrise: the Moon's upper limb appears over the site's horizon, 2° high (standard refraction for that altitude).",
+			"Moonset: the Moon's upper limb disappears behind the site's horizon, 2° high (standard refraction for that altitude).",
+			"Dark sky: the Sun is more than 18° below the horizon and the Moon is below the site's horizon (2° high). " +
+				"The Sun's 18° are counted from the flat horizon, not the site's horizon.",
+		}, std},
+		{"horizon −0.8°", raised(-0.8), []string{
+			"Sunrise: the Sun's upper limb appears over the site's horizon, 0.8° below eye level (standard refraction for that altitude).",
+			"Sunset: the Sun's upper limb disappears behind the site's horizon, 0.8° below eye level (standard refraction for that altitude).",
+			"Moonrise: the Moon's upper limb appears over the site's horizon, 0.8° below eye level (standard refraction for that altitude).",
+			"Moonset: the Moon's upper limb disappears behind the site's horizon, 0.8° below eye level (standard refraction for that altitude).",
+			"Dark sky: the Sun is more than 18° below the horizon and the Moon is below the site's horizon (0.8° below eye level). " +
+				"The Sun's 18° are counted from the flat horizon, not the site's horizon.",
+		}, std},
+		{"skyline", ridge(), []string{
+			"Sunrise: the Sun's upper limb first appears over the site's skyline (standard refraction for the skyline's altitude).",
+			"Sunset: the Sun's upper limb last disappears behind the site's skyline (standard refraction for the skyline's altitude).",
+			"Moonrise: the Moon's upper limb first appears over the site's skyline (standard refraction for the skyline's altitude).",
+			"Moonset: the Moon's upper limb last disappears behind the site's skyline (standard refraction for the skyline's altitude).",
+			"Dark sky: the Sun is more than 18° below the horizon and the Moon is behind the site's skyline. " +
+				"The Sun's 18° are counted from the flat horizon, not the skyline: the glow of twilight lights the sky over the hills as well.",
+		}, std},
+		{"flat, cold air", cold(flat()), []string{
+			"Sunrise: the Sun's upper limb appears on the horizon (refraction for 1030 hPa and −20 °C).",
+			"Sunset: the Sun's upper limb disappears below the horizon (refraction for 1030 hPa and −20 °C).",
+			"Moonrise: the Moon's upper limb appears on the horizon (refraction for 1030 hPa and −20 °C).",
+			"Moonset: the Moon's upper limb disappears below the horizon (refraction for 1030 hPa and −20 °C).",
+		}, air},
+		{"horizon 1.5°, cold air", cold(raised(1.5)), []string{
+			"Sunrise: the Sun's upper limb appears over the site's horizon, 1.5° high (refraction for 1030 hPa and −20 °C at that altitude).",
+			"Sunset: the Sun's upper limb disappears behind the site's horizon, 1.5° high (refraction for 1030 hPa and −20 °C at that altitude).",
+			"Moonrise: the Moon's upper limb appears over the site's horizon, 1.5° high (refraction for 1030 hPa and −20 °C at that altitude).",
+			"Moonset: the Moon's upper limb disappears behind the site's horizon, 1.5° high (refraction for 1030 hPa and −20 °C at that altitude).",
+		}, air},
+		{"skyline, cold air", cold(ridge()), []string{
+			"Sunrise: the Sun's upper limb first appears over the site's skyline (refraction for 1030 hPa and −20 °C at the skyline's altitude).",
+			"Sunset: the Sun's upper limb last disappears behind the site's skyline (refraction for 1030 hPa and −20 °C at the skyline's altitude).",
+			"Moonrise: the Moon's upper limb first appears over the site's skyline (refraction for 1030 hPa and −20 °C at the skyline's altitude).",
+			"Moonset: the Moon's upper limb last disappears behind the site's skyline (refraction for 1030 hPa and −20 °C at the skyline's altitude).",
+		}, air},
+	} {
+		d := CalendarDescription(c.s, &config.Feed{ID: "f", Kinds: specs})
+		for _, w := range c.want {
+			if !strings.Contains(d, w+"\n") {
+				t.Errorf("%s: no line %q in the calendar's description:\n%s", c.name, w, d)
+			}
+		}
+		if caution := "a flat or configured horizon and " + c.caution + " real conditions move them"; !strings.Contains(d, caution) {
+			t.Errorf("%s: the caution does not say %q:\n%s", c.name, caution, d)
+		}
 	}
 }

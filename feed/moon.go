@@ -246,16 +246,24 @@ func moonMeaning(s *config.Site, kind string, maxLit float64) string {
 		return name + ": the Moon crosses the meridian, its highest of the day (below the horizon on some dates)."
 	case "dark-window":
 		down := "below the horizon"
-		if len(s.Skyline) > 0 {
+		switch {
+		case len(s.Skyline) > 0:
 			down = "behind the site's skyline"
+		case s.Horizon != 0:
+			// the Moon's rise and set over the site's horizon altitude
+			// (limbMeaning), the Sun's 18° under the flat horizon
+			down = "below the site's horizon (" + horizonHeight(s.Horizon) + ")"
 		}
 		m := name + ": the Sun is more than 18° below the horizon and the Moon is " + down
 		if maxLit > 0 {
 			m += " or less than " + percent(maxLit) + " lit"
 		}
 		m += "."
-		if len(s.Skyline) > 0 {
+		switch {
+		case len(s.Skyline) > 0:
 			m += " The Sun's 18° are counted from the flat horizon, not the skyline: the glow of twilight lights the sky over the hills as well."
+		case s.Horizon != 0:
+			m += " The Sun's 18° are counted from the flat horizon, not the site's horizon."
 		}
 		return m
 	}

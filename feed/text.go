@@ -510,13 +510,23 @@ var twilightMeaning = map[string]string{
 }
 
 // CalendarCaution is the caution every calendar carries once, in its
-// description: the times are computed, and where a time has legal weight
-// local rules decide. Entries repeat the legal part only where their time
-// is itself a limit in such rules (civil dawn and dusk: aviation night).
-const CalendarCaution = "Caution: times are computed for planning from the site's coordinates, a flat or " +
-	"configured horizon and standard atmospheric refraction; real conditions move them by a minute or more. " +
-	"Where a time has legal weight (hunting hours, aviation night, lighting-up times, curfews) local rules " +
-	"and their official tables decide, not this calendar. " + cautionEyes
+// description, for a site whose rise and set are computed for observer o:
+// the times are computed (with the refraction RefractionText names:
+// "standard atmospheric refraction", or "refraction for 1030 hPa and
+// −20 °C" for a site with pressure_hpa or temperature_c), and where a time
+// has legal weight local rules decide. Entries repeat the legal part only
+// where their time is itself a limit in such rules (civil dawn and dusk:
+// aviation night).
+func CalendarCaution(o astro.Observer) string {
+	refr := "standard atmospheric refraction"
+	if o.Pressure != 0 {
+		refr = RefractionText(o)
+	}
+	return "Caution: times are computed for planning from the site's coordinates, a flat or " +
+		"configured horizon and " + refr + "; real conditions move them by a minute or more. " +
+		"Where a time has legal weight (hunting hours, aviation night, lighting-up times, curfews) local rules " +
+		"and their official tables decide, not this calendar. " + cautionEyes
+}
 
 // CalendarDescription is the description of feed f of site s: the feed's
 // own text, what the entries of each of its kinds mean (kindMeanings:
@@ -531,7 +541,7 @@ func CalendarDescription(s *config.Site, f *config.Feed) string {
 	if m := kindMeanings(s, f.Kinds); len(m) > 0 {
 		b.WriteString(strings.Join(m, "\n") + "\n\n")
 	}
-	b.WriteString(CalendarCaution)
+	b.WriteString(CalendarCaution(PlaceOf(s).Observer))
 	if hasKind(f.Kinds, "solar-eclipse") {
 		b.WriteString(" " + calendarEclipseCaution)
 	}
@@ -748,20 +758,46 @@ func kindMeaning(s *config.Site, kind string) string {
 }
 
 // limbMeaning is the meaning of the rise (rising) or set of body ("Sun",
-// "Moon") at site s, kind its kind's name: "Sunrise: the Sun's upper limb
-// appears on the horizon (standard refraction)."
+// "Moon") at site s, kind its kind's name, in the terms the time is
+// computed in: "Sunrise: the Sun's upper limb appears on the horizon
+// (standard refraction)." over a flat horizon (the dip of its elevation
+// included), "…appears over the site's horizon, 2° high (standard
+// refraction for that altitude)." for a horizon altitude (no dip), and
+// "…first appears over the site's skyline (…)" for a skyline.
 func limbMeaning(s *config.Site, kind, body string, rising bool) string {
 	verb, refr := "disappears below the horizon", RefractionText(PlaceOf(s).Observer)
 	if rising {
 		verb = "appears on the horizon"
 	}
-	if len(s.Skyline) > 0 {
-		verb, refr = "last disappears behind the site's skyline", refr+" for the skyline's altitude"
+	// "standard refraction for that altitude", "refraction for 1030 hPa
+	// and −20 °C at that altitude"
+	at := " for "
+	if refr != "standard refraction" {
+		at = " at "
+	}
+	switch {
+	case len(s.Skyline) > 0:
+		verb, refr = "last disappears behind the site's skyline", refr+at+"the skyline's altitude"
 		if rising {
 			verb = "first appears over the site's skyline"
 		}
+	case s.Horizon != 0:
+		verb, refr = "disappears behind the site's horizon, "+horizonHeight(s.Horizon), refr+at+"that altitude"
+		if rising {
+			verb = "appears over the site's horizon, " + horizonHeight(s.Horizon)
+		}
 	}
 	return plainNames[kind] + ": the " + body + "'s upper limb " + verb + " (" + refr + ")."
+}
+
+// horizonHeight says how high a site's horizon altitude h is: "2° high",
+// "1.5° high", "0.8° below eye level" (a sea horizon seen from a height).
+func horizonHeight(h float64) string {
+	d := strconv.FormatFloat(math.Abs(h), 'f', -1, 64) + "°"
+	if h < 0 {
+		return d + " below eye level"
+	}
+	return d + " high"
 }
 
 // bandMeaning is the meaning of the spans of a band kind (golden hour,

@@ -497,6 +497,16 @@ func TestNginx(t *testing.T) {
 	if health == nil || !bytes.Contains(health[1], []byte("proxy_no_cache 1;")) || !bytes.Contains(health[1], []byte(`"no-store"`)) {
 		t.Errorf("/healthz may be cached: %q", health)
 	}
+	// A header heliocal sends (its Cache-Control on /healthz, feeds and
+	// ad-hoc feeds) that a location adds too would reach the client twice:
+	// a location that adds one hides heliocal's.
+	for _, loc := range regexp.MustCompile(`(?s)location ([^{]*)\{(.*?)\}`).FindAllSubmatch(proxy, -1) {
+		for _, add := range regexp.MustCompile(`(?m)^\s*add_header\s+(\S+)`).FindAllSubmatch(loc[2], -1) {
+			if bytes.Contains(loc[2], []byte("proxy_pass ")) && !bytes.Contains(loc[2], []byte("proxy_hide_header "+string(add[1])+";")) {
+				t.Errorf("heliocal-serve.conf: location %s: add_header %s without proxy_hide_header %[2]s: the header is sent twice", bytes.TrimSpace(loc[1]), add[1])
+			}
+		}
+	}
 	unit, err := os.ReadFile("systemd/heliocal.service")
 	if err != nil {
 		t.Fatal(err)

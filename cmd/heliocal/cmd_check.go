@@ -342,7 +342,7 @@ func writeCheckText(g *globals, r *checkReport, zoneLines []string) error {
 		default:
 			kinds = append(kinds[:len(kinds):len(kinds)], fmt.Sprintf("%d plans", f.Plans))
 		}
-		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%d\t%s\n", f.ID, f.Site, strings.Join(kinds, ","), window(f.DaysBack, f.DaysAhead), f.Events, size(f.Bytes))
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\n", f.ID, f.Site, strings.Join(kinds, ","), window(f.DaysBack, f.DaysAhead), feed.FormatCount(f.Events), size(f.Bytes))
 	}
 	tw.Flush()
 	for _, n := range r.Notes {

@@ -214,3 +214,26 @@ func TestPublishNamesEveryRefusedFeed(t *testing.T) {
 		t.Errorf("check: exit %d, stderr %q", code, errOut)
 	}
 }
+
+// A feed shortened to stay under 1 MB is written one way in check's table,
+// check's and publish's notes and publish's summary: its size as the table
+// writes every size ("974.6 kB", not "0.97 MB") and its events with the
+// thousands separated ("2,032", not "2032").
+func TestTrimmedFeedNumbersOneWay(t *testing.T) {
+	yaml := strings.NewReplacer("max_feed_bytes: 20000\n", "max_feed_bytes: 1000000\n  oversize: trim\n",
+		"days_ahead: 200", "days_ahead: 800").Replace(meadowOversize)
+	cfg := writeConfig(t, yaml)
+	code, out, errOut := runCLI(t, "check", "--config", cfg)
+	row := regexp.MustCompile(`(?m)^meadow .* (\d,\d{3}) +(\d{3}\.\d kB)$`).FindStringSubmatch(out)
+	if code != 0 || row == nil {
+		t.Fatalf("check: exit %d, stderr %q; no row of meadow with its events and size in kB:\n%s", code, errOut, out)
+	}
+	note := "(now " + row[2] + ", " + row[1] + " events)\n"
+	if !strings.Contains(out, note) {
+		t.Errorf("check: the note does not say %q as the table does:\n%s", note, out)
+	}
+	code, _, pubErr := runCLI(t, "publish", "--config", cfg, "--out", filepath.Join(t.TempDir(), "public"))
+	if code != 0 || !strings.Contains(pubErr, note) || !strings.Contains(pubErr, ", "+row[1]+" events, "+row[2]+" in ") {
+		t.Errorf("publish: exit %d, stderr %q; want the note %q and the summary's %s events, %s", code, pubErr, note, row[1], row[2])
+	}
+}

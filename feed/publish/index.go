@@ -52,26 +52,59 @@ type feedView struct {
 	Webcal          template.URL // webcal:// URL; empty without a base URL
 }
 
-// FormatBytes writes a size in SI units: "812 B", "41.2 kB", "5.2 MB"; every
-// size heliocal reports is written this way.
+// FormatBytes writes a size in SI units, with one decimal: "812 B",
+// "41.2 kB", "974.6 kB", "5.2 MB"; every size heliocal reports is written
+// this way (a size next to a limit it is compared with, FormatBytesOver,
+// with more decimals where one does not tell them apart).
 func FormatBytes(n int64) string {
-	switch {
-	case n < 1000:
+	unit, div := byteUnit(n)
+	if div == 1 {
 		return strconv.FormatInt(n, 10) + " B"
-	case n < 1_000_000:
-		return strconv.FormatFloat(float64(n)/1e3, 'f', 1, 64) + " kB"
-	case n < 1_000_000_000:
-		return strconv.FormatFloat(float64(n)/1e6, 'f', 1, 64) + " MB"
 	}
-	return strconv.FormatFloat(float64(n)/1e9, 'f', 1, 64) + " GB"
+	return strconv.FormatFloat(float64(n)/div, 'f', 1, 64) + " " + unit
 }
 
-// FormatBytesOver writes a size n and the limit it is over in the same SI
-// unit, the limit exactly where three decimals can and the size with as
-// few decimals as tell them apart ("1.03 MB" over "1 MB", never "1.0 MB"
-// over "1.0 MB"); when even three decimals cannot, both are written in
-// bytes ("1,000,400 bytes" over "1,000,000 bytes").
+// byteUnit is the unit FormatBytes writes n in, and its size in bytes: the
+// largest whose one-decimal value is under 1000 ("1.0 MB" for 999,960
+// bytes, never "1000.0 kB").
+func byteUnit(n int64) (unit string, div float64) {
+	switch {
+	case n < 1000:
+		return "B", 1
+	case n < 999_950:
+		return "kB", 1e3
+	case n < 999_950_000:
+		return "MB", 1e6
+	}
+	return "GB", 1e9
+}
+
+// FormatBytesOver writes a size n and the limit it is compared with (a
+// size over max_feed_bytes, or shortened to stay under it): the size as
+// FormatBytes writes it, with as many more decimals (up to three) as tell
+// it apart from the limit in that unit ("1.03 MB" over "1 MB", never
+// "1.0 MB" over "1 MB"; "974.6 kB" under "1 MB"), the limit as FormatLimit
+// writes it, exactly where three decimals can; when even three decimals
+// cannot tell them apart, both are written in bytes ("1,000,400 B" over
+// "1,000,000 B").
 func FormatBytesOver(n, limit int64) (size, lim string) {
+	lim = formatLimit(limit)
+	unit, div := byteUnit(n)
+	if div == 1 {
+		return feed.FormatCount(int(n)) + " B", lim
+	}
+	for d := 1; d <= 3; d++ {
+		a := strconv.FormatFloat(float64(n)/div, 'f', d, 64)
+		if a != strconv.FormatFloat(float64(limit)/div, 'f', d, 64) {
+			return a + " " + unit, lim
+		}
+	}
+	return feed.FormatCount(int(n)) + " B", feed.FormatCount(int(limit)) + " B"
+}
+
+// formatLimit writes a size limit in its SI unit with no more decimals than
+// it needs, three at most: "400 kB", "1 MB", "1.25 MB", "500 B".
+func formatLimit(limit int64) string {
 	unit, div := "B", 1.0
 	switch {
 	case limit >= 1_000_000_000:
@@ -82,20 +115,9 @@ func FormatBytesOver(n, limit int64) (size, lim string) {
 		unit, div = "kB", 1e3
 	}
 	if div == 1 {
-		return feed.FormatCount(int(n)) + " B", feed.FormatCount(int(limit)) + " B"
+		return feed.FormatCount(int(limit)) + " B"
 	}
-	d := 0 // the decimals that write the limit exactly, if three do
-	for d < 3 && math.Mod(float64(limit), div/math.Pow10(d)) != 0 {
-		d++
-	}
-	for d = max(d, 1); d <= 3; d++ {
-		a := strconv.FormatFloat(float64(n)/div, 'f', d, 64)
-		b := strconv.FormatFloat(float64(limit)/div, 'f', d, 64)
-		if a != b {
-			return trimZeros(a) + " " + unit, trimZeros(b) + " " + unit
-		}
-	}
-	return feed.FormatCount(int(n)) + " bytes", feed.FormatCount(int(limit)) + " bytes"
+	return trimZeros(strconv.FormatFloat(float64(limit)/div, 'f', 3, 64)) + " " + unit
 }
 
 // trimZeros drops the zeros ending the decimals of x, and the point if

@@ -178,19 +178,17 @@ func OversizeRefusal(e *OversizeError) string {
 // TrimNote is the note about a feed shortened to stay under limit
 // (service.oversize: trim), in the one wording of check, publish and
 // serve: "plot-sun.ics shortened to 2027-06-03 to stay under 1 MB (now
-// 0.998 MB, 1512 events)", sizes written as OversizeWarning writes them.
+// 974.6 kB, 2,032 events)", the size and the count written as check's
+// table and publish's summary write them.
 func TrimNote(t Trimmed, limit int) string {
 	now, most := FormatBytesOver(int64(t.Feed.Bytes), int64(limit))
-	return fmt.Sprintf("%s shortened to %s to stay under %s (now %s, %d events)",
-		t.Feed.File, t.To.Format(time.DateOnly), most, now, t.Feed.Events)
+	return fmt.Sprintf("%s shortened to %s to stay under %s (now %s, %s %s)",
+		t.Feed.File, t.To.Format(time.DateOnly), most, now, feed.FormatCount(t.Feed.Events), plural(t.Feed.Events, "event", "events"))
 }
 
 // FormatLimit writes a size limit as OversizeWarning and TrimNote write it:
 // with no more decimals than it needs ("400 kB", "1 MB", "1.25 MB").
-func FormatLimit(limit int) string {
-	_, most := FormatBytesOver(0, int64(limit))
-	return most
-}
+func FormatLimit(limit int) string { return formatLimit(int64(limit)) }
 
 func displayDir(dir string) string {
 	if dir == "" || strings.HasSuffix(dir, string(os.PathSeparator)) || strings.HasSuffix(dir, "/") {

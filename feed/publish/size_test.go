@@ -137,8 +137,11 @@ func TestOversize(t *testing.T) {
 	}
 }
 
-// A size and the limit it is over are written in one unit with the decimals
-// that tell them apart: never "1.0 MB" over "1.0 MB".
+// A size and the limit it is over are written with the decimals that tell
+// them apart: never "1.0 MB" over "1.0 MB"; the size in the unit and with
+// the decimal FormatBytes writes it in where that is enough ("974.6 kB"
+// under "1 MB", as check's table writes the same feed, not "0.97 MB"), the
+// limit in its own unit with no decimal it does not need.
 func TestFormatBytesOver(t *testing.T) {
 	for _, c := range []struct {
 		n, limit       int64
@@ -146,16 +149,37 @@ func TestFormatBytesOver(t *testing.T) {
 	}{
 		{1_029_056, 1_000_000, "1.03 MB", "1 MB"},
 		{2_500_000, 1_000_000, "2.5 MB", "1 MB"},
+		{2_000_000, 1_000_000, "2.0 MB", "1 MB"},
 		{1_004_000, 1_000_000, "1.004 MB", "1 MB"},
-		{1_000_400, 1_000_000, "1,000,400 bytes", "1,000,000 bytes"},
+		{1_000_400, 1_000_000, "1,000,400 B", "1,000,000 B"},
+		{974_600, 1_000_000, "974.6 kB", "1 MB"},
+		{999_960, 1_000_000, "999,960 B", "1,000,000 B"},
 		{24_300, 20_000, "24.3 kB", "20 kB"},
+		{19_000, 20_000, "19.0 kB", "20 kB"},
 		{1_500_000, 1_250_000, "1.5 MB", "1.25 MB"},
 		{1_300_000, 1_234_567, "1.3 MB", "1.235 MB"},
 		{900, 500, "900 B", "500 B"},
+		{1_200, 500, "1.2 kB", "500 B"},
 	} {
 		size, limit := FormatBytesOver(c.n, c.limit)
 		if size != c.size || limit != c.limitStr {
 			t.Errorf("FormatBytesOver(%d, %d) = %q, %q; want %q, %q", c.n, c.limit, size, limit, c.size, c.limitStr)
+		}
+		if c.size != FormatBytes(c.n) && !strings.HasSuffix(c.size, " B") && len(c.size) <= len(FormatBytes(c.n)) {
+			t.Errorf("FormatBytesOver(%d, %d) = %q: neither FormatBytes's %q nor more decimals of it", c.n, c.limit, c.size, FormatBytes(c.n))
+		}
+	}
+}
+
+// Every size is written in the unit that keeps it under 1000 with one
+// decimal: "999.9 kB", then "1.0 MB", never "1000.0 kB".
+func TestFormatBytes(t *testing.T) {
+	for n, want := range map[int64]string{
+		0: "0 B", 999: "999 B", 1000: "1.0 kB", 974_600: "974.6 kB", 999_949: "999.9 kB", 999_950: "1.0 MB",
+		4_200_000: "4.2 MB", 999_949_999: "999.9 MB", 999_950_000: "1.0 GB",
+	} {
+		if got := FormatBytes(n); got != want {
+			t.Errorf("FormatBytes(%d) = %q, want %q", n, got, want)
 		}
 	}
 }

@@ -97,6 +97,25 @@ const indexReadability = `(() => {
       if (drawn.slice(0, 3).join() !== k.slice(0, 3).join() || Math.abs(drawn[3] - k[3]) > 0.02) out.push(fig.querySelector("title").textContent.split(",")[0] + ": the key of " + kind + " is " + getComputedStyle(key).borderTopColor + ", the chart draws it " + m.stroke + " at opacity " + m.strokeOpacity);
     }
   }
+  // Dark windows are hatched, lamp periods flat (they overlap in the
+  // evening, in colours 1.04:1 apart): the dark windows' stroke is a
+  // pattern whose lines stand 3:1 from its ground (WCAG 2.1 SC 1.4.11), and
+  // the caption's key is painted with the same pattern.
+  const ref = (paint) => { const m = paint.match(/url\("?[^#]*#([^")]+)"?\)/); return m ? m[1] : ""; };
+  const over = (c, a) => c.map((v, i) => a * v + (1 - a) * page[i]);
+  for (const fig of document.querySelectorAll("figure")) {
+    const dark = fig.querySelector("svg path.dark"), lamp = fig.querySelector("svg path.lamp");
+    if (!dark) continue;
+    const name = fig.querySelector("title").textContent.split(",")[0];
+    const id = ref(getComputedStyle(dark).stroke), pat = id && document.getElementById(id);
+    if (!pat || pat.tagName !== "pattern") { out.push(name + ": dark windows drawn " + getComputedStyle(dark).stroke + ", not hatched"); continue; }
+    const line = getComputedStyle(pat.querySelector("line")), ground = getComputedStyle(pat.querySelector("rect"));
+    const c = ratio(over(rgb(line.stroke), parseFloat(line.strokeOpacity)), over(rgb(ground.fill), parseFloat(ground.fillOpacity)));
+    if (c < 3) out.push(name + ": the dark windows' hatching " + c.toFixed(2) + ":1 against its ground, need 3");
+    if (lamp && ref(getComputedStyle(lamp).stroke) === id) out.push(name + ": lamp periods hatched as the dark windows are");
+    const key = fig.querySelector("figcaption svg.swatch rect");
+    if (!key || ref(getComputedStyle(key).fill) !== id) out.push(name + ": the caption's key of dark windows is " + (key ? getComputedStyle(key).fill : "missing") + ", the chart draws them with #" + id);
+  }
   if (ratio(ink, [255, 255, 255]) < 4.5) out.push("text " + getComputedStyle(document.body).color + " is " + ratio(ink, [255, 255, 255]).toFixed(2) + ":1 against white paper");
   return out;
 })()`
@@ -104,8 +123,9 @@ const indexReadability = `(() => {
 // The published index reads whole at a tablet's 768 px and a desk's 1280 px,
 // in the light and the dark palette: subscribe links break only after a dash,
 // the charts' threshold labels reach 4.5:1 (WCAG 2.1 SC 1.4.3) on a halo of
-// the page colour, and each key of a chart's caption has the colour of the
-// mark it names; printed, from a system in dark mode too, its text is dark
+// the page colour, each key of a chart's caption has the colour of the
+// mark it names, and the dark windows are hatched (in the caption's key too)
+// where the lamp periods are flat; printed, from a system in dark mode too, its text is dark
 // on the white paper, and a site's heading stays with its chart.
 func TestBrowserPublishedIndexReadable(t *testing.T) {
 	ctx := browser(t)

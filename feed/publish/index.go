@@ -284,7 +284,7 @@ svg .yl{text-anchor:end}
 .rise{fill:none;stroke:#c86a14;stroke-width:2}
 .set{fill:none;stroke:#5b4bb7;stroke-width:2}
 .lamp{fill:none;stroke:#1f9e89;stroke-opacity:.45}
-.dark{fill:none;stroke:#4a5a78;stroke-opacity:.35}
+path.dark{fill:none}.hatch rect{fill:#4a5a78;fill-opacity:.18}.hatch line{stroke:#4a5a78;stroke-width:2.2}
 .thr{stroke:#287a36;stroke-width:1;stroke-dasharray:3 2}
 svg .tl{fill:#287a36;stroke:#fbfaf6;stroke-width:3px;stroke-linejoin:round;paint-order:stroke}
 .mark{stroke:#c0392b;stroke-width:1}
@@ -292,9 +292,9 @@ svg .tl{fill:#287a36;stroke:#fbfaf6;stroke-width:3px;stroke-linejoin:round;paint
 .moon{stroke:currentColor;stroke-width:1;fill:none}
 .moon.full{fill:#e8c547}
 .key{display:inline-block;width:1.4em;height:0;vertical-align:.3em;margin:0 .25em 0 .6em;border-top:3px solid}
-.key.rise{border-color:#c86a14}.key.set{border-color:#5b4bb7}.key.lamp{border-top-width:.8em;vertical-align:-.1em;border-color:#1f9e8973}.key.dark{border-top-width:.8em;vertical-align:-.1em;border-color:#4a5a7859}.key.thr{border-top:2px dashed #287a36}.key.mark{border-top:2px solid #c0392b}.key.today{border-top:2px solid currentColor}
+.key.rise{border-color:#c86a14}.key.set{border-color:#5b4bb7}.key.lamp{border-top-width:.8em;vertical-align:-.1em;border-color:#1f9e8973}svg.swatch{display:inline-block;width:1.4em;height:.8em;vertical-align:-.1em;margin:0 .25em 0 .6em}.key.thr{border-top:2px dashed #287a36}.key.mark{border-top:2px solid #c0392b}.key.today{border-top:2px solid currentColor}
 @media (max-width:40rem){body{padding:.6rem}figure{padding-left:1rem}svg{overflow:visible}svg text{font-size:17px}svg .ml,svg .tl{display:none}table,tbody,tr,td{display:block}thead{display:none}tr{border-bottom:1px solid #e4e2dc;padding:.4rem 0}td{border:0;padding:.1rem 0}td.num{display:inline-block;margin-right:1rem}.unit{display:inline}}
-@media screen and (prefers-color-scheme:dark){body{color:#e6e4de;background:#16181f}.place{color:#b4b2ac}.caution{background:#2b2517}a{color:#8fb8ff}th,td,tr{border-bottom-color:#333846}figcaption{color:#c4c2bc}.rise,.key.rise{stroke:#f0a04b;border-color:#f0a04b}.set,.key.set{stroke:#a99bff;border-color:#a99bff}.thr{stroke:#6cc47a}.key.thr{border-top-color:#6cc47a}svg .tl{fill:#6cc47a;stroke:#16181f}.mark{stroke:#ff7a6b}.key.mark{border-top-color:#ff7a6b}.dark{stroke:#9fb0d0}.key.dark{border-color:#9fb0d059}}
+@media screen and (prefers-color-scheme:dark){body{color:#e6e4de;background:#16181f}.place{color:#b4b2ac}.caution{background:#2b2517}a{color:#8fb8ff}th,td,tr{border-bottom-color:#333846}figcaption{color:#c4c2bc}.rise,.key.rise{stroke:#f0a04b;border-color:#f0a04b}.set,.key.set{stroke:#a99bff;border-color:#a99bff}.thr{stroke:#6cc47a}.key.thr{border-top-color:#6cc47a}svg .tl{fill:#6cc47a;stroke:#16181f}.mark{stroke:#ff7a6b}.key.mark{border-top-color:#ff7a6b}.hatch rect{fill:#9fb0d0}.hatch line{stroke:#9fb0d0}}
 @media print{h2,.place{break-after:avoid}figure,tr{break-inside:avoid}}
 </style>
 </head>
@@ -312,13 +312,14 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{
 <section id="site-{{.ID}}">
 <h2>{{.Name}}</h2>
 <p class="place">{{.Coords}}, elevation {{.Elevation}}, time zone {{.Zone}}</p>
-{{with .Chart}}{{$step := .Step}}<figure>
+{{with .Chart}}{{$step := .Step}}{{$id := .ID}}<figure>
 <svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 760 318" width="760" height="318" role="img" aria-label="{{.Title}}. {{.Summary}}" aria-labelledby="{{.ID}}-t {{.ID}}-d">
 <title id="{{.ID}}-t">{{.Title}}</title>
 <desc id="{{.ID}}-d">{{.Summary}}</desc>
-<rect class="plot" x="44" y="44" width="700" height="240"/>
+{{if .Dark}}<defs><pattern id="{{.ID}}-hatch" class="hatch" width="6" height="6" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><rect width="6" height="6"/><line x1="3" y1="0" x2="3" y2="6"/></pattern></defs>
+{{end}}<rect class="plot" x="44" y="44" width="700" height="240"/>
 {{with .Today}}{{if ne .PastW "0"}}<rect class="past" x="44" y="44" width="{{.PastW}}" height="240"><title>before today</title></rect>
-{{end}}{{end}}{{with .Dark}}<path class="dark" stroke-width="{{$step}}" d="{{.}}"><title>dark windows</title></path>
+{{end}}{{end}}{{with .Dark}}<path class="dark" stroke="url(#{{$id}}-hatch)" stroke-width="{{$step}}" d="{{.}}"><title>dark windows</title></path>
 {{end}}{{with .Lamps}}<path class="lamp" stroke-width="{{$step}}" d="{{.}}"><title>lamp periods</title></path>
 {{end}}{{range .Hours}}<line class="grid" x1="44" x2="744" y1="{{.Y}}" y2="{{.Y}}"/><text class="yl" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>
 {{end}}{{range .Months}}<line class="tick" x1="{{.X}}" x2="{{.X}}" y1="284" y2="289"/>{{if .Label}}<text x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>{{end}}
@@ -333,7 +334,7 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{
 <span class="key rise"></span>sunrise and
 <span class="key set"></span>sunset{{if .Lamps}},
 <span class="key lamp"></span>lamp periods{{end}}{{if .Dark}},
-<span class="key dark"></span>dark windows{{end}}{{if .Thresholds}},
+<svg class="swatch" viewBox="0 0 22 12" width="22" height="12" aria-hidden="true"><rect class="dark" width="22" height="12" fill="url(#{{.ID}}-hatch)"/></svg>dark windows (hatched){{end}}{{if .Thresholds}},
 <span class="key thr"></span>photoperiod threshold crossings{{end}}{{if .Today}},
 <span class="key today"></span>today{{if ne .Today.PastW "0"}} (the weeks before it shaded){{end}}{{end}}; along the top, ○ new and <span style="color:#e8c547">●</span> full Moon.{{if .Marks}} <span class="key mark"></span>Red lines:{{range $i, $m := .Marks}}{{if $i}};{{end}} {{$m.Label}} ({{$m.Date}}){{end}}.{{end}}{{with .Held}} {{.}}{{end}}</figcaption>
 </figure>

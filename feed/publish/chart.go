@@ -298,7 +298,7 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 	today := todayIndex(c.Today, days)
 	v := &chartView{
 		ID:         "chart-" + id,
-		Title:      chartTitle(siteName, first, last),
+		Title:      chartTitle(siteName, first, last, len(c.Lamps) > 0, len(c.Dark) > 0),
 		Rise:       curve(days, func(d ChartDay) (time.Duration, bool) { return d.Rise, d.HasRise }),
 		Set:        curve(days, func(d ChartDay) (time.Duration, bool) { return d.Set, d.HasSet }),
 		Lamps:      spans(days, c.Lamps),
@@ -317,6 +317,11 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 		ahead = days[today:]
 	}
 	v.Summary = chartSummary(ahead)
+	for _, w := range []string{spanWords(c.Lamps, true, ahead[0].Date, first, last), spanWords(c.Dark, false, ahead[0].Date, first, last)} {
+		if w != "" {
+			v.Summary += " " + w
+		}
+	}
 	for _, t := range v.Thresholds {
 		v.Summary += " " + t.Text + "."
 	}
@@ -373,12 +378,23 @@ func wallClock(t time.Time, loc *time.Location) time.Time {
 	return time.Date(l.Year(), l.Month(), l.Day(), l.Hour(), l.Minute(), l.Second(), l.Nanosecond(), time.UTC)
 }
 
-// chartTitle names the site and the year (or the dates) the chart covers.
-func chartTitle(siteName string, first, last time.Time) string {
-	if first.Year() == last.Year() {
-		return fmt.Sprintf("Sunrise and sunset at %s, %d", siteName, first.Year())
+// chartTitle says what the chart draws (sunrise and sunset, and the lamp
+// periods and dark windows when it has them), where, and over which year
+// (or dates).
+func chartTitle(siteName string, first, last time.Time, lamps, dark bool) string {
+	what := "Sunrise and sunset"
+	switch {
+	case lamps && dark:
+		what = "Sunrise, sunset, lamp periods and dark windows"
+	case lamps:
+		what = "Sunrise, sunset and lamp periods"
+	case dark:
+		what = "Sunrise, sunset and dark windows"
 	}
-	return fmt.Sprintf("Sunrise and sunset at %s, %s to %s", siteName,
+	if first.Year() == last.Year() {
+		return fmt.Sprintf("%s at %s, %d", what, siteName, first.Year())
+	}
+	return fmt.Sprintf("%s at %s, %s to %s", what, siteName,
 		first.Format("2 Jan 2006"), last.Format("2 Jan 2006"))
 }
 

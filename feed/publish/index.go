@@ -313,9 +313,8 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{
 <h2>{{.Name}}</h2>
 <p class="place">{{.Coords}}, elevation {{.Elevation}}, time zone {{.Zone}}</p>
 {{with .Chart}}{{$step := .Step}}{{$id := .ID}}<figure>
-<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 760 318" width="760" height="318" role="img" aria-label="{{.Title}}. {{.Summary}}" aria-labelledby="{{.ID}}-t {{.ID}}-d">
+<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 760 318" width="760" height="318" role="img">
 <title id="{{.ID}}-t">{{.Title}}</title>
-<desc id="{{.ID}}-d">{{.Summary}}</desc>
 {{if .Dark}}<defs><pattern id="{{.ID}}-hatch" class="hatch" width="6" height="6" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><rect width="6" height="6"/><line x1="3" y1="0" x2="3" y2="6"/></pattern></defs>
 {{end}}<rect class="plot" x="44" y="44" width="700" height="240"/>
 {{with .Today}}{{if ne .PastW "0"}}<rect class="past" x="44" y="44" width="{{.PastW}}" height="240"><title>before today</title></rect>

@@ -351,8 +351,8 @@ func TestChartPolarDayAndNight(t *testing.T) {
 	if svg.Attr["viewBox"] != "0 0 760 318" {
 		t.Errorf("viewBox %q", svg.Attr["viewBox"])
 	}
-	if !strings.Contains(svg.Attr["aria-label"], "Sunrise and sunset at Driftwood Ice Camp") {
-		t.Errorf("aria-label %q", svg.Attr["aria-label"])
+	if title := svg.all("title")[0].text(); svg.Attr["role"] != "img" || !strings.HasPrefix(title, "Sunrise and sunset at Driftwood Ice Camp") {
+		t.Errorf("role %q, title %q", svg.Attr["role"], title)
 	}
 	paths := map[string]string{}
 	for _, p := range svg.all("path") {
@@ -437,7 +437,7 @@ func TestChartPolarDayAndNight(t *testing.T) {
 	if full != 1 || newMoon != 1 {
 		t.Errorf("%d full and %d new Moon symbols, want 1 and 1", full, newMoon)
 	}
-	text := svg.text()
+	text := doc.all("figure")[0].text() // the chart and its caption
 	for _, s := range []string{"Sunrise and sunset at Driftwood Ice Camp <North>, 2015", "March equinox", "12 h ↑",
 		"Day length reaches 12 h on 20 Mar (12 h photoperiod)", "today", "full Moon, 4 Apr", "new Moon, 20 Mar",
 		"The Sun stays up all day on", "It stays down all day on"} {

@@ -1,0 +1,78 @@
+package publish
+
+import (
+	"strings"
+	"testing"
+	"time"
+)
+
+// The chart's title names the lamp periods and dark windows it draws, and
+// its words say when they fall: on how many days (or nights), in which
+// seasons (parted by four weeks without any), and the longest, a period
+// across midnight counted whole on the date it begins. The spans are
+// invented: evening lamps 17:00–19:00 in the winter months with one long
+// evening to 01:30, and dark windows 22:00–04:00 with a ten-night gap
+// around a full Moon and a night parted by the Moon.
+func TestChartWordsLampsAndDark(t *testing.T) {
+	date := func(m time.Month, d int) time.Time { return time.Date(2027, m, d, 0, 0, 0, 0, time.UTC) }
+	var days []ChartDay
+	for d := date(1, 1); d.Year() == 2027; d = d.AddDate(0, 0, 1) {
+		days = append(days, ChartDay{Date: d, Daylight: 10 * time.Hour})
+	}
+	winter := func(d time.Time) bool { return d.Month() <= 2 || d.Month() >= 11 }
+	c := &SiteChart{Days: days, Today: date(1, 1)}
+	for _, day := range days {
+		d := day.Date
+		if winter(d) {
+			to := 19 * time.Hour
+			if d.Equal(date(1, 20)) {
+				to = 24 * time.Hour
+			}
+			c.Lamps = append(c.Lamps, ClockSpan{Date: d, From: 17 * time.Hour, To: to})
+		}
+		if d.Equal(date(1, 21)) { // the 20th's lamps, after midnight
+			c.Lamps = append(c.Lamps, ClockSpan{Date: d, From: 0, To: 90 * time.Minute})
+		}
+		night := (d.Month() <= 4 || d.Month() >= 9) && !(d.Month() == 2 && d.Day() >= 10 && d.Day() <= 19)
+		switch {
+		case d.Equal(date(3, 5)): // the Moon up from 23:00 to 01:00
+			c.Dark = append(c.Dark, ClockSpan{Date: d, From: 20 * time.Hour, To: 23 * time.Hour}, ClockSpan{Date: d.AddDate(0, 0, 1), From: time.Hour, To: 4 * time.Hour})
+		case d.Equal(date(4, 1)):
+			c.Dark = append(c.Dark, ClockSpan{Date: d, From: 21 * time.Hour, To: 24 * time.Hour}, ClockSpan{Date: d.AddDate(0, 0, 1), To: 5 * time.Hour})
+		case night:
+			c.Dark = append(c.Dark, ClockSpan{Date: d, From: 22 * time.Hour, To: 24 * time.Hour})
+			if !d.Equal(date(12, 31)) {
+				c.Dark = append(c.Dark, ClockSpan{Date: d.AddDate(0, 0, 1), To: 4 * time.Hour})
+			}
+		}
+	}
+	// the end of the night before the chart's first date
+	c.Dark = append(c.Dark, ClockSpan{Date: date(1, 1), To: 4 * time.Hour})
+
+	v := chart("fen", "Fen Glasshouses", c)
+	if want := "Sunrise, sunset, lamp periods and dark windows at Fen Glasshouses, 2027"; v.Title != want {
+		t.Errorf("title %q, want %q", v.Title, want)
+	}
+	for _, want := range []string{
+		// 59 days in January and February, 61 in November and December
+		"Lamp periods on 120 days, from 1 Jan to 28 Feb and from 1 Nov to 31 Dec; the longest 8 h 30 min (on 20 Jan).",
+		// 110 nights from January to April (ten left out in February), 122
+		// from September; the night of 5 March counted once
+		"Dark windows on 232 nights, from 1 Jan to 30 Apr and from 1 Sep to 31 Dec; the longest 8 h 00 min (the night of 1 Apr).",
+	} {
+		if !strings.Contains(v.Summary, want) {
+			t.Errorf("summary %q lacks %q", v.Summary, want)
+		}
+	}
+
+	// From 1 March on, the words speak of the coming winter's lamps only.
+	c.Today = date(3, 1)
+	if v, want := chart("fen", "Fen Glasshouses", c), "Lamp periods on 61 days, from 1 Nov to 31 Dec; the longest 2 h 00 min (on 1 Nov)."; !strings.Contains(v.Summary, want) {
+		t.Errorf("from 1 March: summary %q lacks %q", v.Summary, want)
+	}
+	c.Lamps, c.Dark = nil, c.Dark[:1]
+	if v := chart("fen", "Fen Glasshouses", c); !strings.HasPrefix(v.Title, "Sunrise, sunset and dark windows at ") ||
+		strings.Contains(v.Summary, "Lamp periods") || !strings.Contains(v.Summary, "No dark windows from today on.") {
+		t.Errorf("without lamps, dark windows before today only: title %q, summary %q", v.Title, v.Summary)
+	}
+}

@@ -206,6 +206,9 @@ type previewEntry struct {
 	// Open marks a band's span not left before these days end (near a
 	// pole): it has no end, and When reads "from 02:24".
 	Open bool `json:"open,omitempty"`
+	// feedTitle is the title the feed gives the entry, by which the
+	// all-day entries of a kind are in the feeds' order.
+	feedTitle string
 }
 
 type previewDay struct {
@@ -565,7 +568,9 @@ func days(cal *feed.Calendar, q AdhocQuery) []previewDay {
 		if !ok {
 			continue
 		}
-		pe := previewEntry{Kind: e.Kind, Title: e.Title}
+		// a row is one date among others: a note's "today" would name the
+		// wrong day (feed.RowTitle)
+		pe := previewEntry{Kind: e.Kind, Title: feed.RowTitle(&e), feedTitle: e.Title}
 		if !e.AllDay {
 			row := out[i].Date
 			start := feed.ToMinute(e.Start).In(loc) // shown to the minute: the one rounding rule
@@ -602,7 +607,7 @@ func days(cal *feed.Calendar, q AdhocQuery) []previewDay {
 			case a.Time != "":
 				return 0
 			}
-			return feed.AllDayOrder(a.Kind, a.Title, b.Kind, b.Title)
+			return feed.AllDayOrder(a.Kind, a.feedTitle, b.Kind, b.feedTitle)
 		})
 	}
 	return out

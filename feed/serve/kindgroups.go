@@ -1,6 +1,9 @@
 package serve
 
-// kindChoice is one kind the builder offers, with a plain explanation.
+// kindChoice is one kind the builder offers, with a plain explanation. Its
+// label is the kind's name in the feeds' titles and categories ("Civil
+// dawn"); the plain words for it, if any, lead the explanation ("first
+// light: …").
 type kindChoice struct {
 	Kind, Label, Explain string
 	Checked              bool // chosen when the page opens
@@ -18,11 +21,11 @@ type kindGroup struct {
 // configuration's vocabulary (checked by a test).
 var kindGroups = []kindGroup{
 	{ID: "growing", Name: "Growing", Explain: "Field work, greenhouses and animals: when the day starts, ends and how long it is.", Lighting: true, Kinds: []kindChoice{
-		{Kind: "civil-dawn", Label: "First light", Explain: "bright enough to work outside without lamps", Checked: true, Shift: true},
+		{Kind: "civil-dawn", Label: "Civil dawn", Explain: "first light: bright enough to work outside without lamps", Checked: true, Shift: true},
 		{Kind: "sunrise", Label: "Sunrise", Explain: "the top of the Sun appears over a flat horizon", Checked: true, Shift: true},
 		{Kind: "sunset", Label: "Sunset", Explain: "the top of the Sun disappears", Checked: true, Shift: true},
-		{Kind: "civil-dusk", Label: "Last light", Explain: "after this, outdoor work needs lamps", Checked: true, Shift: true},
-		{Kind: "daily-summary", Label: "Day summary", Explain: "one all-day note per day with day length and twilight"},
+		{Kind: "civil-dusk", Label: "Civil dusk", Explain: "last light: after this, outdoor work needs lamps", Checked: true, Shift: true},
+		{Kind: "daily-summary", Label: "Daylight", Explain: "a summary of the day: one all-day note per day with day length and twilight"},
 	}},
 	{ID: "events", Name: "Events and photography", Explain: "Planning weddings, shoots and outdoor shows around the light.", Kinds: []kindChoice{
 		{Kind: "golden-hour", Label: "Golden hour", Explain: "low, warm sunlight shortly after sunrise and before sunset"},
@@ -31,9 +34,9 @@ var kindGroups = []kindGroup{
 	}},
 	{ID: "observing", Name: "Observing", Explain: "Telescopes, star parties and night photography.", Kinds: []kindChoice{
 		{Kind: "nautical-dusk", Label: "Nautical dusk", Explain: "the horizon fades; the brighter stars are out", Shift: true},
-		{Kind: "astronomical-dusk", Label: "Night begins", Explain: "the sky is fully dark (Sun 18° down)", Shift: true},
-		{Kind: "astronomical-dawn", Label: "Night ends", Explain: "the first trace of dawn in the east", Shift: true},
-		{Kind: "dark-window", Label: "Dark, moonless hours", Explain: "full night with the Moon below the horizon"},
+		{Kind: "astronomical-dusk", Label: "Astronomical dusk", Explain: "night begins: the sky is fully dark (Sun 18° down)", Shift: true},
+		{Kind: "astronomical-dawn", Label: "Astronomical dawn", Explain: "night ends: the first trace of dawn in the east", Shift: true},
+		{Kind: "dark-window", Label: "Dark sky", Explain: "dark, moonless hours: full night with the Moon below the horizon"},
 		{Kind: "moonrise", Label: "Moonrise", Explain: "the Moon comes up", Shift: true},
 		{Kind: "moonset", Label: "Moonset", Explain: "the Moon goes down", Shift: true},
 		{Kind: "moon-phases", Label: "Moon phases", Explain: "new, first quarter, full and last quarter"},

@@ -170,6 +170,11 @@ func TestBrowserBuilder(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
+	// the preview's heading names the days it shows, those from the date
+	// chosen (21 June 2026 is a Sunday), not "the next seven days"
+	if h, err := chromedp.Run(ctx, chromedp.Text(id("days-h"))); err != nil || h != "Seven days from Sun "+from {
+		t.Errorf("the preview's heading reads %q (%v), want %q", h, err, "Seven days from Sun "+from)
+	}
 	attr := func(sel, name string) string {
 		t.Helper()
 		v, err := chromedp.Run(ctx, chromedp.AttributeValue(id(sel), name))

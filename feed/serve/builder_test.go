@@ -259,3 +259,23 @@ func TestTableErrorPage(t *testing.T) {
 		}
 	}
 }
+
+// The form's field for the horizon names it as the table's heading names
+// what it was given: one altitude is the horizon ("horizon 2.5°", as
+// `heliocal events` and the configuration's `horizon` say it), points per
+// direction a skyline ("skyline 0:2, 90:8 …").
+func TestHorizonFieldNamesAsTable(t *testing.T) {
+	s := builderTestServer(t)
+	h := s.Handler()
+	form := body(t, get(t, h, "GET", "/"))
+	_, label, _ := strings.Cut(form, `<label for="horizon">`)
+	label, _, _ = strings.Cut(label, "</label>")
+	for _, given := range []string{"2.5", "90:8,0:2,180:1"} {
+		page := body(t, get(t, h, "GET", "/at?lat=47.8&lon=13.05&kinds=sunrise&days=1&horizon="+given))
+		_, intro, _ := strings.Cut(page, "Elevation 0 m, ")
+		word, _, _ := strings.Cut(intro, " ") // "horizon", "skyline"
+		if word == "" || !strings.Contains(strings.ToLower(label), word) {
+			t.Errorf("horizon=%s: the table says %q, the form's field %q", given, word, label)
+		}
+	}
+}

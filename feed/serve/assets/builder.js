@@ -1,5 +1,5 @@
-// The builder page: reads the form, asks the server for a preview of the
-// next seven days (/at.json) and shows the subscribe links it returns.
+// The builder page: reads the form, asks the server for a preview of seven
+// days from the date chosen (/at.json) and shows the subscribe links it returns.
 "use strict";
 
 // parseAngle reads decimal degrees ("-33.45") or degrees, minutes and
@@ -97,6 +97,9 @@ function render(res) {
   $("qr").src = res.qr;
   $("tz-found").textContent = res.zone + (res.zone_found ? " (found from the coordinates)" : "");
   $("zone-note").textContent = "(times in " + res.zone + ")";
+  // the days are those from the date chosen ("Preview from"), the next
+  // ones or not
+  if (res.days.length) $("days-h").textContent = "Seven days from " + res.days[0].weekday + " " + res.days[0].date;
   $("span-note").textContent = res.subscribe_days
     ? "The calendar always covers the next " + res.subscribe_days + " days" +
       (res.subscribe_days < 365 ? " (a year of these events would be too large for some calendar apps)." : ".")

@@ -61,6 +61,20 @@ func TestFormNamesKindsAsFeed(t *testing.T) {
 			}
 		}
 	}
+	// the lamps too: the form's field for them names them as the feed does
+	// ("Supplemental lighting: target day length", not "Lamp target day
+	// length")
+	var lamps string
+	for line := range strings.SplitSeq(getOK(t, ts.URL+"/at.ics?"+place+"&kinds=sunrise&lighting=16h&start=2027-01-01&days=7"), "\r\n") {
+		if cats, ok := strings.CutPrefix(line, "CATEGORIES:"); ok && cats != "Sun,Sunrise" {
+			_, lamps, _ = strings.Cut(cats, ",")
+		}
+	}
+	_, field, _ := strings.Cut(page, `<label for="lighting">`)
+	if field, _, _ = strings.Cut(field, "</label>"); lamps == "" || !strings.HasPrefix(field, lamps+":") {
+		t.Errorf("the form's lamp field is %q, the feed names the lamps %q", field, lamps)
+	}
+
 	// the preview and the table title the kinds' events by the same names
 	q := place + "&kinds=civil-dawn,civil-dusk,astronomical-dawn,astronomical-dusk,dark-window&start=2027-01-01"
 	var res struct {

@@ -347,6 +347,28 @@ func TestReadmeDemoSites(t *testing.T) {
 	}
 }
 
+// The README's Event kinds table names every kind of the vocabulary in its
+// first column ("`sunrise`, `sunset`", "`sun-altitude:<deg>`"): a kind added
+// to config.KindNames is documented where users look for it.
+func TestReadmeKindsTable(t *testing.T) {
+	_, section, ok := strings.Cut(string(readmeBytes(t)), "\n## Event kinds\n")
+	if !ok {
+		t.Fatal("README has no section \"Event kinds\"")
+	}
+	section, _, _ = strings.Cut(section, "\n## ")
+	var named strings.Builder
+	for _, line := range strings.Split(section, "\n") {
+		if cells := strings.Split(line, "|"); strings.HasPrefix(line, "| `") && len(cells) > 2 {
+			named.WriteString(cells[1])
+		}
+	}
+	for _, n := range config.KindNames {
+		if !strings.Contains(named.String(), "`"+n+"`") && !strings.Contains(named.String(), "`"+n+":") {
+			t.Errorf("README's Event kinds table does not name the kind %s", n)
+		}
+	}
+}
+
 // The README's polar-night note is what the command prints: at 69.65° N
 // (18.96° E, Europe/Oslo) on 21 December 2027 `--kinds sunrise` lists no
 // event and one note, the README's. The Sun's highest altitude there that

@@ -559,6 +559,42 @@ func TestDemoDocumentsEveryKey(t *testing.T) {
 	}
 }
 
+// TestReferenceDocumentsEveryKey checks that docs/configuration.md has a
+// row for each key of the configuration in the section of its place in the
+// file: a table row whose first column names it ("| `key` |", or
+// "| `low`, `high` |").
+func TestReferenceDocumentsEveryKey(t *testing.T) {
+	b, err := os.ReadFile(filepath.Join("..", "docs", "configuration.md"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	named := map[string]string{} // section ("service", "feeds") → the first cells of its rows
+	section := ""
+	for _, line := range strings.Split(string(b), "\n") {
+		if h, ok := strings.CutPrefix(line, "## `"); ok {
+			section, _, _ = strings.Cut(h, "`")
+			continue
+		}
+		if cells := strings.Split(line, "|"); strings.HasPrefix(line, "| `") && len(cells) > 2 {
+			named[section] += cells[1]
+		}
+	}
+	for path, section := range map[string]string{
+		"service": "service", "page": "page", "sites": "sites",
+		"feeds": "feeds", "feeds[0].kinds[0]": "feeds", "feeds[0].plans[0]": "feeds",
+	} {
+		keys := keysAt(path)
+		if len(keys) == 0 {
+			t.Errorf("no keys under %q", path)
+		}
+		for _, key := range keys {
+			if !strings.Contains(named[section], "`"+key+"`") {
+				t.Errorf("docs/configuration.md, section %s: no row names the key %q (under %q)", section, key, path)
+			}
+		}
+	}
+}
+
 func TestLoadErrors(t *testing.T) {
 	_, err := Load(filepath.Join(testdata, "does-not-exist.yaml"))
 	if !errors.Is(err, fs.ErrNotExist) || err.Error() != filepath.Join(testdata, "does-not-exist.yaml")+": no such file" {

@@ -13,7 +13,8 @@
 //
 //	file                      method                                       published source
 //	julian.go                 Julian day ↔ time.Time                       Meeus, Astronomical Algorithms 2nd ed. (1998), ch. 7
-//	deltat.go, zz_deltat.go   UTC → TT, UT1; ΔT model                      USNO/IERS observed ΔT 1973–2023; Espenak & Meeus polynomials (NASA, 2006); IERS leap seconds
+//	deltat.go, zz_deltat.go   UTC → TT, UT1; ΔT model                      USNO/IERS observed ΔT 1973–2023; Espenak & Meeus polynomials (NASA, 2006) before;
+//	                                                                       Stephenson, Morrison & Hohenkerk, Proc. R. Soc. A 472 (2016) after; IERS leap seconds
 //	nutation.go               nutation, obliquity                          IAU 1980 theory, Meeus ch. 22 (Table 22.A, eq. 22.2)
 //	sidereal.go               mean and apparent sidereal time              Meeus ch. 12 (eq. 12.4, IAU 1982)
 //	vsop87.go, zz_vsop87_*.go the Earth's heliocentric position            VSOP87D, Bretagnon & Francou, A&A 202, 309 (1988); Meeus ch. 32
@@ -22,7 +23,10 @@
 //	seasons.go                equinoxes, solstices, cross-quarters         Meeus ch. 27 (Table 27.B starting values, iterated on sun.go)
 //	apsides.go                perihelion, aphelion (Earth centre)          Meeus ch. 38 (eq. 38.1 start), extrema of VSOP87D R
 //	ephemeris.go, horizon.go  shared track, threshold crossings, transits  Meeus ch. 15 (hour-angle estimate), ch. 11 (observer, WGS 84),
-//	                                                                       USNO rise/set and twilight definitions
+//	                                                                       USNO rise/set and twilight definitions; refraction: Bennett's
+//	                                                                       formula scaled for pressure and temperature, Meeus ch. 16
+//	azimuth.go                azimuth of the Sun and the Moon              Meeus ch. 13 (counted here from the north)
+//	skyline.go                rise and set over a skyline per direction    Meeus eq. 16.4 (refraction at the skyline's altitude)
 //	elp.go, zz_elp_moon.go    the Moon's geocentric position               ELP/MPP02 (DE405 fit), Chapront & Francou, A&A 404, 735 (2003)
 //	moon.go                   apparent Moon (light time, nutation),        Meeus ch. 47 (method), 40 (parallax), 48 (illuminated fraction,
 //	                          topocentric Moon, illumination               bright limb)
@@ -92,9 +96,10 @@
 //     within 0.05″ of IAU 2000A; both are far below what a sunrise or a
 //     season instant can show (0.05″ of solar longitude is 1.2 s).
 //   - Polar motion and diurnal aberration (0.3″ at most) are ignored.
-//   - Refraction is not modelled beyond the standard thresholds: real
-//     refraction near the horizon varies with temperature and pressure by
-//     minutes of time at sunrise, more at high latitudes.
+//   - Refraction is the standard one (34′ at a flat horizon, Bennett's
+//     formula at a raised one), scaled for a site's pressure and temperature
+//     when they are given; the air's layers (inversions, mirages) move a
+//     sunrise by minutes more, at high latitudes further.
 //   - UT1 − UTC is known only where ΔT is observed (1972–2023); elsewhere
 //     UT1 = UTC is assumed, which is within 0.9 s for future dates as long
 //     as leap seconds keep |UT1 − UTC| below 0.9 s.
@@ -105,6 +110,5 @@
 //     supported span starts in 1800.
 //   - The Moon is ELP/MPP02 in its published 4,862-term reduced form,
 //     truncated to 2,096 terms (within 0.08″ of it over 1800–2200); the
-//     illuminated fraction is geocentric; lunar eclipses and librations are
-//     not computed.
+//     illuminated fraction is geocentric; librations are not computed.
 package astro

@@ -175,6 +175,10 @@ type chartView struct {
 type tickView struct {
 	X, Y, TX, TY string
 	Label        string
+	// Short marks a month label with too few of its days in the chart for
+	// the larger labels of a narrow screen, which leave it out; Alt every
+	// second one of the others, which the narrowest screens leave out.
+	Short, Alt bool
 }
 
 type markView struct {
@@ -431,10 +435,13 @@ func chartSummary(days []ChartDay) string {
 }
 
 // monthTicks puts a tick at each first of the month (and at the start),
-// labelled when at least 12 days of that month are in the chart.
+// labelled when at least 12 days of that month are in the chart; Short when
+// fewer than 27 are, too narrow a column for the label a phone draws, and
+// Alt every second label of the others.
 func monthTicks(days []ChartDay) []tickView {
 	var ticks []tickView
 	step := float64(plotW) / float64(len(days))
+	alt := false
 	for i, d := range days {
 		if d.Date.Day() != 1 && i != 0 {
 			continue
@@ -444,6 +451,10 @@ func monthTicks(days []ChartDay) []tickView {
 		end := time.Date(d.Date.Year(), d.Date.Month()+1, 1, 0, 0, 0, 0, time.UTC)
 		if n := len(days) - i; end.Sub(d.Date) >= 12*24*time.Hour && n >= 12 {
 			tv.Label = d.Date.Format("Jan")
+			tv.Short = end.Sub(d.Date) < 27*24*time.Hour || n < 27
+			if !tv.Short {
+				tv.Alt, alt = alt, !alt
+			}
 		}
 		if d.Date.Day() == 1 || tv.Label != "" {
 			ticks = append(ticks, tv)
@@ -452,12 +463,13 @@ func monthTicks(days []ChartDay) []tickView {
 	return ticks
 }
 
-// hourTicks marks the clock every 6 hours.
+// hourTicks marks the clock every 6 hours, labelled with the hour ("06";
+// the template adds ":00", which a phone leaves out).
 func hourTicks() []tickView {
 	var ticks []tickView
 	for h := 0; h <= 24; h += 6 {
 		y := yOf(float64(h))
-		ticks = append(ticks, tickView{Y: num(y), TX: num(plotLeft - 6), TY: num(y + 4), Label: fmt.Sprintf("%02d:00", h)})
+		ticks = append(ticks, tickView{Y: num(y), TX: num(plotLeft - 6), TY: num(y + 4), Label: fmt.Sprintf("%02d", h)})
 	}
 	return ticks
 }

@@ -293,7 +293,9 @@ svg .tl{fill:#287a36;stroke:#fbfaf6;stroke-width:3px;stroke-linejoin:round;paint
 .moon.full{fill:#e8c547}
 .key{display:inline-block;width:1.4em;height:0;vertical-align:.3em;margin:0 .25em 0 .6em;border-top:3px solid}
 .key.rise{border-color:#c86a14}.key.set{border-color:#5b4bb7}.key.lamp{border-top-width:.8em;vertical-align:-.1em;border-color:#1f9e8973}svg.swatch{display:inline-block;width:1.4em;height:.8em;vertical-align:-.1em;margin:0 .25em 0 .6em}.key.thr{border-top:2px dashed #287a36}.key.mark{border-top:2px solid #c0392b}.key.today{border-top:2px solid currentColor}
-@media (max-width:40rem){body{padding:.6rem}figure{padding-left:1rem}svg{overflow:visible}svg text{font-size:17px}svg .ml,svg .tl{display:none}table,tbody,tr,td{display:block}thead{display:none}tr{border-bottom:1px solid #e4e2dc;padding:.4rem 0}td{border:0;padding:.1rem 0}td.num{display:inline-block;margin-right:1rem}.unit{display:inline}}
+@media (max-width:40rem){body{padding:.6rem}svg text{font-size:18px}svg .ml,svg .tl,svg .tdl,svg .short,svg .mm{display:none}svg .yl{dominant-baseline:central}svg .mo{transform:translateY(11px)}table,tbody,tr,td{display:block}thead{display:none}tr{border-bottom:1px solid #e4e2dc;padding:.4rem 0}td{border:0;padding:.1rem 0}td.num{display:inline-block;margin-right:1rem}.unit{display:inline}}
+@media (max-width:28rem){svg text{font-size:24px}}
+@media (max-width:22.5rem){svg text{font-size:28px}svg .alt{display:none}}
 @media screen and (prefers-color-scheme:dark){body{color:#e6e4de;background:#16181f}.place{color:#b4b2ac}.caution{background:#2b2517}a{color:#8fb8ff}th,td,tr{border-bottom-color:#333846}figcaption{color:#c4c2bc}.rise,.key.rise{stroke:#f0a04b;border-color:#f0a04b}.set,.key.set{stroke:#a99bff;border-color:#a99bff}.thr{stroke:#6cc47a}.key.thr{border-top-color:#6cc47a}svg .tl{fill:#6cc47a;stroke:#16181f}.mark{stroke:#ff7a6b}.key.mark{border-top-color:#ff7a6b}.hatch rect{fill:#9fb0d0}.hatch line{stroke:#9fb0d0}}
 @media print{h2,.place{break-after:avoid}figure,tr{break-inside:avoid}}
 </style>
@@ -320,14 +322,14 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{
 {{with .Today}}{{if ne .PastW "0"}}<rect class="past" x="44" y="44" width="{{.PastW}}" height="240"><title>before today</title></rect>
 {{end}}{{end}}{{with .Dark}}<path class="dark" stroke="url(#{{$id}}-hatch)" stroke-width="{{$step}}" d="{{.}}"><title>dark windows</title></path>
 {{end}}{{with .Lamps}}<path class="lamp" stroke-width="{{$step}}" d="{{.}}"><title>lamp periods</title></path>
-{{end}}{{range .Hours}}<line class="grid" x1="44" x2="744" y1="{{.Y}}" y2="{{.Y}}"/><text class="yl" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>
-{{end}}{{range .Months}}<line class="tick" x1="{{.X}}" x2="{{.X}}" y1="284" y2="289"/>{{if .Label}}<text x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>{{end}}
+{{end}}{{range .Hours}}<line class="grid" x1="44" x2="744" y1="{{.Y}}" y2="{{.Y}}"/><text class="yl" x="{{.TX}}" y="{{.TY}}">{{.Label}}<tspan class="mm">:00</tspan></text>
+{{end}}{{range .Months}}<line class="tick" x1="{{.X}}" x2="{{.X}}" y1="284" y2="289"/>{{if .Label}}<text class="mo{{if .Short}} short{{end}}{{if .Alt}} alt{{end}}" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>{{end}}
 {{end}}{{with .Rise}}<path class="rise" d="{{.}}"><title>sunrise</title></path>
 {{end}}{{with .Set}}<path class="set" d="{{.}}"><title>sunset</title></path>
 {{end}}{{range .Thresholds}}<line class="thr" x1="{{.X}}" x2="{{.X}}" y1="44" y2="284"><title>{{.Text}}</title></line><text class="tl" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>
 {{end}}{{range .Marks}}<line class="mark" x1="{{.X}}" x2="{{.X}}" y1="{{.Y1}}" y2="{{.Y2}}"><title>{{.Label}}, {{.Date}}</title></line>{{if .Shown}}<text class="ml" x="{{.X}}" y="{{.TY}}" text-anchor="{{.Anchor}}">{{.Label}}</text>{{end}}
 {{end}}{{range .Phases}}<circle class="moon{{if .Full}} full{{end}}" cx="{{.X}}" cy="{{.Y}}" r="3.5"><title>{{if .Full}}full Moon{{else}}new Moon{{end}}, {{.Date}}</title></circle>
-{{end}}{{with .Today}}<line class="today" x1="{{.X}}" x2="{{.X}}" y1="44" y2="296"><title>today, {{.Date}}</title></line><text x="{{.TX}}" y="{{.TY}}">today</text>
+{{end}}{{with .Today}}<line class="today" x1="{{.X}}" x2="{{.X}}" y1="44" y2="296"><title>today, {{.Date}}</title></line><text class="tdl" x="{{.TX}}" y="{{.TY}}">today</text>
 {{end}}</svg>
 <figcaption>{{.Summary}} Local clock time (hours down, months across) of
 <span class="key rise"></span>sunrise and

@@ -692,18 +692,31 @@ type tableView struct {
 	// https and mailto through), leaving the button dead.
 	Webcal   template.URL
 	Link, QR template.URL
-	Days     []previewDay
-	From, To string
-	Builder  bool
-	Legal    bool
+	// SubscribeDays is the subscription's window, as the builder's
+	// preview gives it (see subscribeDays); 0 without ad-hoc feeds.
+	SubscribeDays int
+	Days          []previewDay
+	From, To      string
+	Builder       bool
+	Legal         bool
 }
 
 func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
-	q, cal, start, ok := s.previewCalendar(w, r, maxTable, s.tableFailed(r))
+	fail := s.tableFailed(r)
+	q, cal, start, ok := s.previewCalendar(w, r, maxTable, fail)
 	if !ok {
 		return
 	}
-	https, page := s.links(r, q, start, 0)
+	// the subscribe link asks for the days that fit, as the preview's does:
+	// without them a year over the size limit would be refused
+	subDays := 0
+	if s.opts.Adhoc != nil {
+		var err error
+		if subDays, err = s.subscribeDays(r.Context(), q, nil); s.computeFailed(w, q, err, fail) {
+			return
+		}
+	}
+	https, page := s.links(r, q, start, subDays)
 	// the heading names a place without a name by its coordinates: the
 	// line under it does not say them again
 	place := feed.Coords(q.Latitude, q.Longitude, 4) + fmt.Sprintf(", %g m", q.Elevation)
@@ -712,7 +725,7 @@ func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
 	}
 	v := tableView{Page: s.page(), Title: cal.Title, Zone: q.Location.String(),
 		Coords: place + q.horizonWords(),
-		HTTPS:  https, Webcal: template.URL(webcal(https)), Link: template.URL(page), QR: template.URL(qrDataURL(page)),
+		HTTPS:  https, Webcal: template.URL(webcal(https)), Link: template.URL(page), QR: template.URL(qrDataURL(page)), SubscribeDays: subDays,
 		Days: days(cal, q), From: q.Start.Format(time.DateOnly), To: q.Start.AddDate(0, 0, q.Days-1).Format(time.DateOnly),
 		Builder: !s.page().NoBuilder, Legal: slices.ContainsFunc(q.Kinds, LegalKind)}
 	s.render(w, r, "table.html", v)

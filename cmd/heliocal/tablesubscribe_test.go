@@ -1,0 +1,48 @@
+package main
+
+import (
+	"encoding/json"
+	"html"
+	"net/http"
+	"regexp"
+	"strconv"
+	"strings"
+	"testing"
+)
+
+// tableAddress is the calendar address of the /at page.
+var tableAddress = regexp.MustCompile(`Calendar address: <a href="([^"]+)"`)
+
+// The /at table's subscribe link is the builder's: where a year of the
+// chosen kinds is over the ad-hoc size limit (five kinds at 33°27′S
+// 70°40′W, as in TestBrowserBuilder) it asks for the days that fit, so the
+// feed it names is served, not refused, and the page says how many days
+// the calendar covers, as the builder's result does.
+func TestTableSubscribesAsPreview(t *testing.T) {
+	ts := builderServer(t)
+	q := "lat=-33.45&lon=-70.6667&tz=America/Santiago&kinds=civil-dawn,sunrise,sunset,civil-dusk,golden-hour&start=2026-06-21"
+	var res struct {
+		HTTPS         string
+		SubscribeDays int `json:"subscribe_days"`
+	}
+	if err := json.Unmarshal([]byte(getOK(t, ts.URL+"/at.json?"+q)), &res); err != nil {
+		t.Fatal(err)
+	}
+	if res.SubscribeDays < 150 || res.SubscribeDays >= 365 {
+		t.Fatalf("the preview subscribes to %d days; want fewer than a year, the days that fit", res.SubscribeDays)
+	}
+	page := getOK(t, ts.URL+"/at?"+q)
+	m := tableAddress.FindStringSubmatch(page)
+	if m == nil {
+		t.Fatalf("the table page has no calendar address:\n%s", page)
+	}
+	if link := html.UnescapeString(m[1]); link != res.HTTPS {
+		t.Errorf("the table subscribes to %s, the preview to %s", link, res.HTTPS)
+	}
+	if code, body := status(t, html.UnescapeString(m[1])); code != http.StatusOK || !strings.HasPrefix(body, "BEGIN:VCALENDAR") {
+		t.Errorf("the table's calendar address answers %d: %.200s", code, body)
+	}
+	if want := "The calendar always covers the next " + strconv.Itoa(res.SubscribeDays) + " days (a year of these events would be too large for some calendar apps)."; !strings.Contains(page, want) {
+		t.Errorf("the table page does not say %q", want)
+	}
+}

@@ -46,3 +46,36 @@ func TestTableSubscribesAsPreview(t *testing.T) {
 		t.Errorf("the table page does not say %q", want)
 	}
 }
+
+// A "no lamps needed" note on the /at table says until when as the
+// subscribed feed and the builder's preview say it on the same date, not
+// "through" the table's last date, as if lamps were needed after it: at
+// 48.2° N, 16.4° E the natural day is over 14 h from early May to the middle
+// of August (from memory; the day lengths are held to USNO in the astro
+// tests), and a table of ten days from 1 May 2027 ends long before.
+func TestTableLampNoteAsFed(t *testing.T) {
+	ts := builderServer(t)
+	q := "lat=48.2&lon=16.4&tz=Europe/Vienna&kinds=sunrise&lighting=14h&start=2027-05-01"
+	var res struct {
+		Days []struct {
+			Date    string
+			Entries []struct{ Title string }
+		}
+	}
+	if err := json.Unmarshal([]byte(getOK(t, ts.URL+"/at.json?"+q)), &res); err != nil {
+		t.Fatal(err)
+	}
+	var note string
+	for _, e := range res.Days[0].Entries {
+		if strings.HasPrefix(e.Title, "No lamps needed") {
+			note = e.Title
+		}
+	}
+	if !strings.HasPrefix(note, "No lamps needed until ") {
+		t.Fatalf("the preview's note on %s is %q, want one that says until when", res.Days[0].Date, note)
+	}
+	page := getOK(t, ts.URL+"/at?"+q+"&days=10")
+	if !strings.Contains(page, "<li>"+html.EscapeString(note)+"</li>") || strings.Contains(page, "No lamps needed through") {
+		t.Errorf("the table's note is not the preview's %q:\n%s", note, page)
+	}
+}

@@ -451,8 +451,8 @@ func (s *Server) servePreview(w http.ResponseWriter, r *http.Request) {
 	}
 }
 
-// lampNotesAsFed gives the "no lamps needed" notes of the preview cal whose
-// stretch of dates outlasts the preview ("No lamps needed through 14 Jun")
+// lampNotesAsFed gives the "no lamps needed" notes of the preview (or the
+// table) cal whose stretch of dates outlasts it ("No lamps needed through 14 Jun")
 // the title the subscribed feed gives them on the same dates: the feed,
 // feedDays long from the preview's first date, looks further and says until
 // when ("No lamps needed until 2 Jul", the first date that needs lamps
@@ -708,13 +708,19 @@ func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	// the subscribe link asks for the days that fit, as the preview's does:
-	// without them a year over the size limit would be refused
+	// without them a year over the size limit would be refused; a "no
+	// lamps needed" note says until when as that feed does, not through
+	// the table's last date
 	subDays := 0
+	var lamps yearLamps
 	if s.opts.Adhoc != nil {
 		var err error
-		if subDays, err = s.subscribeDays(r.Context(), q, nil); s.computeFailed(w, q, err, fail) {
+		if subDays, err = s.subscribeDays(r.Context(), q, &lamps); s.computeFailed(w, q, err, fail) {
 			return
 		}
+	}
+	if err := s.lampNotesAsFed(r.Context(), q, subDays, &lamps, cal); s.computeFailed(w, q, err, fail) {
+		return
 	}
 	https, page := s.links(r, q, start, subDays)
 	// the heading names a place without a name by its coordinates: the

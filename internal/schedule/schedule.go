@@ -151,7 +151,18 @@ func nextOnClocks(s cron.Schedule, loc *time.Location, t time.Time) time.Time {
 	// The clock time written in UTC, whose days are all 24 h long: the
 	// schedule's times are found among them, then put on loc's clocks.
 	wall := time.Date(lt.Year(), lt.Month(), lt.Day(), lt.Hour(), lt.Minute(), lt.Second(), lt.Nanosecond(), time.UTC)
-	for range 3 { // a later clock time when the next is the second of two
+	// A time the clocks skipped in the last day runs moved by their jump,
+	// perhaps after t (04:15 from 04:05 in Helsinki on the night of the
+	// jump): the search starts the jump earlier on the clocks.
+	_, now := lt.Zone()
+	if _, before := t.Add(-24 * time.Hour).In(loc).Zone(); now > before {
+		wall = wall.Add(-time.Duration(now-before) * time.Second)
+	}
+	// The clock times at or before t are passed over, those of a time the
+	// clocks show twice too when t is at its second showing (it ran at the
+	// first). The search ends: wall grows, and spec.Next gives the zero
+	// time once it finds no time in five years.
+	for {
 		if wall = spec.Next(wall); wall.IsZero() {
 			return wall
 		}
@@ -159,7 +170,6 @@ func nextOnClocks(s cron.Schedule, loc *time.Location, t time.Time) time.Time {
 			return at
 		}
 	}
-	return s.Next(lt)
 }
 
 // onClocks is the instant loc's clocks show wall (a clock time written in

@@ -245,6 +245,25 @@ func (s *Server) subscribeDays(ctx context.Context, q AdhocQuery, lamps *yearLam
 	return s.fitDays(ctx, q, s.opts.AdhocDefaultDays, lamps)
 }
 
+// subscription gives the window of q's subscribe link, as the preview and the
+// table give it (subscribeDays; 0 without ad-hoc feeds), and words cal's
+// "no lamps needed" notes as that feed does (lampNotesAsFed). It reports
+// false when it failed, answered by fail.
+func (s *Server) subscription(w http.ResponseWriter, r *http.Request, q AdhocQuery, cal *feed.Calendar, fail failFunc) (int, bool) {
+	subDays := 0
+	var lamps yearLamps
+	if s.opts.Adhoc != nil {
+		var err error
+		if subDays, err = s.subscribeDays(r.Context(), q, &lamps); s.computeFailed(w, q, err, fail) {
+			return 0, false
+		}
+	}
+	if err := s.lampNotesAsFed(r.Context(), q, subDays, &lamps, cal); s.computeFailed(w, q, err, fail) {
+		return 0, false
+	}
+	return subDays, true
+}
+
 // fitDays is the longest rolling window, of at most most days, whose feed
 // for q stays within 90 % of the size limit whatever day it starts on: it
 // computes a year of q's entries from q.Start (or AdhocDefaultDays, when
@@ -422,16 +441,8 @@ func (s *Server) servePreview(w http.ResponseWriter, r *http.Request) {
 	if !ok {
 		return
 	}
-	subDays := 0
-	var lamps yearLamps
-	var err error
-	if s.opts.Adhoc != nil {
-		subDays, err = s.subscribeDays(r.Context(), q, &lamps)
-		if s.computeFailed(w, q, err, plain) {
-			return
-		}
-	}
-	if err := s.lampNotesAsFed(r.Context(), q, subDays, &lamps, cal); s.computeFailed(w, q, err, plain) {
+	subDays, ok := s.subscription(w, r, q, cal, plain)
+	if !ok {
 		return
 	}
 	https, page := s.links(r, q, start, subDays)
@@ -711,15 +722,8 @@ func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
 	// without them a year over the size limit would be refused; a "no
 	// lamps needed" note says until when as that feed does, not through
 	// the table's last date
-	subDays := 0
-	var lamps yearLamps
-	if s.opts.Adhoc != nil {
-		var err error
-		if subDays, err = s.subscribeDays(r.Context(), q, &lamps); s.computeFailed(w, q, err, fail) {
-			return
-		}
-	}
-	if err := s.lampNotesAsFed(r.Context(), q, subDays, &lamps, cal); s.computeFailed(w, q, err, fail) {
+	subDays, ok := s.subscription(w, r, q, cal, fail)
+	if !ok {
 		return
 	}
 	https, page := s.links(r, q, start, subDays)

@@ -437,14 +437,10 @@ func Render(ctx context.Context, srcs []Source, opts RenderOptions) (*Bundle, er
 	var l listing
 	var files []File
 	var stamps []time.Time
-	var trimmed []Trimmed
 	err = renderAll(ctx, sel, &opts, nil, func(r rendered) error {
-		l.add(r)
+		l.add(r) // with the feed shortened, if it was (l.trimmed)
 		files = append(files, r.file)
 		stamps = append(stamps, r.stamp)
-		if !r.trimmedTo.IsZero() {
-			trimmed = append(trimmed, Trimmed{Feed: r.info, To: r.trimmedTo})
-		}
 		if opts.Progress != nil {
 			opts.Progress.Feed(r.info, true)
 		}
@@ -468,5 +464,5 @@ func Render(ctx context.Context, srcs []Source, opts RenderOptions) (*Bundle, er
 		files = append(files, more...)
 	}
 	sort.Slice(files, func(i, j int) bool { return files[i].Name < files[j].Name })
-	return &Bundle{Built: l.generated, Feeds: l.feeds, Files: files, Trimmed: trimmed}, nil
+	return &Bundle{Built: l.generated, Feeds: l.feeds, Files: files, Trimmed: l.trimmed}, nil
 }

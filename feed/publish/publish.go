@@ -367,11 +367,14 @@ func (w *Writer) mergeManifests(ctx context.Context, n int, digest string, opts 
 		if m.Generated.After(gen) {
 			gen = m.Generated
 		}
-		for _, t := range m.Trimmed {
+		for j, t := range m.Trimmed {
 			to, err := time.Parse(time.DateOnly, t.To)
+			if err != nil {
+				return nil, fmt.Errorf("publish: shard manifest of shard %s: trimmed[%d].to: %q is not a date (YYYY-MM-DD)", m.Shard, j, t.To)
+			}
 			i := slices.IndexFunc(m.Feeds, func(f FeedInfo) bool { return f.ID == t.Feed })
-			if err != nil || i < 0 {
-				return nil, fmt.Errorf("publish: shard manifest: trimmed feed %q to %q: no such feed or date", t.Feed, t.To)
+			if i < 0 {
+				return nil, fmt.Errorf("publish: shard manifest of shard %s: trimmed[%d].feed: %q is not one of the shard's feeds", m.Shard, j, t.Feed)
 			}
 			l.trimmed = append(l.trimmed, Trimmed{Feed: m.Feeds[i], To: to})
 		}

@@ -89,8 +89,11 @@ func build(cfg *config.Config, now time.Time, l layout) ([]publish.Source, publi
 const chartWeeksBefore = 4
 
 // chartsFor draws, for each site, the year ahead and the weeks before
-// today: day length and twilight bands, the events of the site's feeds as
-// marks, and its photoperiod thresholds as levels.
+// today: day length and twilight bands, the lamp periods and dark windows of
+// the site's feeds, their yearly events as marks, and their photoperiod
+// thresholds as levels, each feed's on the dates it holds: its window, up to
+// the last date of the feeds oversize: trim shortened (the chart function's
+// trimmed, those of the site).
 //
 // The charts share the feeds' ephemeris (feeds, when it covers the charts'
 // dates, as it does when the feeds reach back four weeks and ahead a year):

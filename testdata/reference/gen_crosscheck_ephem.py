@@ -3,7 +3,7 @@
 with PyEphem (Debian's python3-ephem, libastro):
 
     apt-get install -y python3-ephem
-    python3 testdata/reference/gen_crosscheck_ephem.py
+    /usr/bin/python3 testdata/reference/gen_crosscheck_ephem.py
 
 It writes crosscheck-sun-ephem.csv next to this script, in the format of
 crosscheck-sun-erfa.csv: per site, local date (fixed zone round(lon/15) h)

@@ -5,7 +5,7 @@ ERFA (Essential Routines for Fundamental Astronomy, the BSD-licensed
 derivative of the IAU SOFA library) through Debian's python3-erfa package:
 
     apt-get install -y python3-erfa python3-numpy
-    python3 testdata/reference/gen_crosscheck_erfa.py
+    /usr/bin/python3 testdata/reference/gen_crosscheck_erfa.py
 
 It writes, next to this script:
 

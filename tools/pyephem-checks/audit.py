@@ -5,7 +5,7 @@ same definitions, match them and list every difference over the tolerance.
 
     apt-get install -y python3-ephem
     go build -o /tmp/heliocal ./cmd/heliocal
-    python3 tools/pyephem-checks/audit.py /tmp/heliocal [--quick]
+    /usr/bin/python3 tools/pyephem-checks/audit.py /tmp/heliocal [--quick]
 
 Definitions, matched to heliocal's README (Event kinds):
   * sunrise/sunset: the Sun's centre at -0.8333 deg less the dip of the

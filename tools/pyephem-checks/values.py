@@ -4,7 +4,7 @@ outside check values for the README's figures on a day across midnight and
 on refraction scaled for the air:
 
     apt-get install -y python3-ephem
-    python3 tools/pyephem-checks/values.py
+    /usr/bin/python3 tools/pyephem-checks/values.py
 
 The tests do not run this script: the values it prints are recorded in them
 with this script's name beside each one (cmd/heliocal/readme_test.go

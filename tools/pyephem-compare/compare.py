@@ -4,7 +4,7 @@ against whole process, on the same machine in one run.
 
     apt-get install -y python3-ephem
     go build -o /tmp/heliocal ./cmd/heliocal
-    python3 tools/pyephem-compare/compare.py --heliocal /tmp/heliocal [--runs 3] [--years 20]
+    /usr/bin/python3 tools/pyephem-compare/compare.py --heliocal /tmp/heliocal [--runs 3] [--years 20]
         [--to file|pipe|null] [--floor]
 
 Both sides compute the same kinds for the same place and dates with the same

@@ -7,15 +7,18 @@
 // against someone else's server. Every run is bounded by a request count and
 // a time limit.
 //
-// Usage:
+// Usage, against a running `heliocal serve` (without --config or a
+// heliocal.yaml it serves the built-in demo on :8080, whose feeds include
+// fernhollow-sun.ics):
 //
-//	loadtest -feed http://127.0.0.1:8080/feeds/meadowbrook-sun.ics \
+//	loadtest -feed http://127.0.0.1:8080/feeds/fernhollow-sun.ics \
 //	         -adhoc 'http://127.0.0.1:8080/at.ics?lon=13.05&tz=Europe/Vienna&kinds=sunrise,sunset,civil-dawn,civil-dusk&days=365'
 //
 // or let it start the server and stop it afterwards:
 //
-//	loadtest -start 'heliocal serve --config farm.yaml --listen 127.0.0.1:18080' \
-//	         -feed http://127.0.0.1:18080/feeds/meadowbrook-sun.ics -adhoc '...'
+//	loadtest -start 'heliocal serve --listen 127.0.0.1:18080' \
+//	         -feed http://127.0.0.1:18080/feeds/fernhollow-sun.ics \
+//	         -adhoc 'http://127.0.0.1:18080/at.ics?lon=13.05&tz=Europe/Vienna&kinds=sunrise,sunset,civil-dawn,civil-dusk&days=365'
 //
 // The ad-hoc URL must leave out lat: loadtest adds a different latitude to
 // every request (from -lat upwards in steps of 0.001°), so each one misses

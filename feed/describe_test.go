@@ -515,6 +515,64 @@ func TestSolarNoonOnTheHorizon(t *testing.T) {
 	}
 }
 
+// A solar noon at a site with a horizon altitude says what is seen over that
+// horizon, as the date's sunrise does. At 80° N, 0° the Sun's centre
+// culminates 0.57° below the horizon on 21 February 2015 and 1.29° below it
+// on 19 February (PyEphem 4.1.4, pressure 0: −0.5707° at 12:13:37 UT,
+// −1.2887° at 12:13:50 UT; the Sun's radius 16.2′ on both days). With the
+// refraction of Bennett's formula (Meeus, Astronomical Algorithms 2nd ed.,
+// eq. 16.4: 32′ at 0.23°, 40′ at −0.36°) its upper limb is seen 0.23° high
+// on 21 February: under a horizon 2° high, so the Sun neither rises there
+// nor is in view at noon. On 19 February it is seen 0.36° below eye level:
+// over a sea horizon 0.8° below it, where the Sun rises that day.
+func TestSolarNoonFollowsSiteHorizon(t *testing.T) {
+	for _, tc := range []struct {
+		name, day string
+		horizon   float64
+		rises     bool   // the date has a sunrise at the site
+		title     string // of the solar noon
+		says      string // in its description
+		eyes      bool   // the eye caution
+	}{
+		{"horizon 2°", "2015-02-21", 2, false, "Solar noon, Sun 0.6° below the horizon",
+			"the Sun at −0.6° altitude, its centre below the horizon, its upper limb behind the site's horizon, 2° high.", false},
+		{"horizon 0.8° below eye level", "2015-02-19", -0.8, true, "Solar noon, Sun on the horizon",
+			"the Sun at −1.3° altitude, its centre below the horizon, its upper limb in view over the site's horizon, 0.8° below eye level.", true},
+		{"flat", "2015-02-21", 0, true, "Solar noon, Sun on the horizon",
+			"the Sun at −0.6° altitude, its centre below the horizon, its upper limb in view over a flat horizon.", true},
+	} {
+		s := site(t, "usno-80n", 80, 0, "UTC")
+		s.Horizon = tc.horizon
+		var specs []config.KindSpec
+		for _, k := range mustKinds(t, "sunrise", "solar-noon") {
+			specs = append(specs, config.KindSpec{Kind: k})
+		}
+		entries, err := sky(t, tc.day, tc.day).Entries(context.Background(), s, "noon", specs, date(tc.day), date(tc.day))
+		if err != nil {
+			t.Fatal(err)
+		}
+		var rises bool
+		var noon *Entry
+		for i, e := range entries {
+			switch e.Kind {
+			case "sunrise":
+				rises = !e.AllDay
+			case "solar-noon":
+				noon = &entries[i]
+			}
+		}
+		if noon == nil {
+			t.Fatalf("%s: no solar noon on %s in %d entries", tc.name, tc.day, len(entries))
+		}
+		if rises != tc.rises {
+			t.Errorf("%s: a sunrise on %s: %v, want %v", tc.name, tc.day, rises, tc.rises)
+		}
+		if noon.Title != tc.title || !strings.Contains(noon.Description, tc.says) || strings.Contains(noon.Description, cautionEyes) != tc.eyes {
+			t.Errorf("%s: %q\n%s\nwant the title %q, the description %q, the eye caution %v", tc.name, noon.Title, noon.Description, tc.title, tc.says, tc.eyes)
+		}
+	}
+}
+
 // A photoperiod date whose day length rounds to the threshold itself says
 // it to the second, so that "falling below 12 h" is not followed by "up
 // for 12 h 00 min". Santiago, 33.45° S 70.67° W (PyEphem 4.1.4, upper

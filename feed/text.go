@@ -437,11 +437,21 @@ type siteInfo struct {
 	zone     *zoneCache
 	band     *bandText // the band kind last written
 	flatRise float64   // flatRiseAltitude: the Sun's centre rises over a flat horizon through it
+	// rise is the altitude through which the Sun's centre rises over the
+	// site's horizon altitude (`horizon: 2`), flatRise without one or with a
+	// skyline.
+	rise float64
 }
 
 // newSiteInfo returns the siteInfo of s, for one goroutine (its zone cache).
 func newSiteInfo(s *config.Site) *siteInfo {
-	return &siteInfo{Site: s, where: where(s), zone: newZoneCache(s.TimeZone.Location), flatRise: flatRiseAltitude(PlaceOf(s).Observer)}
+	o := PlaceOf(s).Observer
+	si := &siteInfo{Site: s, where: where(s), zone: newZoneCache(s.TimeZone.Location), flatRise: flatRiseAltitude(o)}
+	si.rise = si.flatRise
+	if s.Horizon != 0 && len(s.Skyline) == 0 {
+		si.rise = o.RiseSetAltitude()
+	}
+	return si
 }
 
 // RefractionText names the refraction rise and set are computed with:
@@ -882,12 +892,24 @@ func describe(s *siteInfo, e Event) (string, string) {
 		title = "Solar noon, Sun " + height(e.Altitude, "high")
 		// what solar noon is, in the calendar's description (kindMeaning)
 		fmt.Fprintf(&b, "Solar noon at %s, the Sun at %s altitude", at, degrees(e.Altitude))
+		over := "a flat horizon"
+		if s.rise != s.flatRise {
+			over = "the site's horizon, " + horizonHeight(s.Horizon)
+		}
 		switch {
-		case e.Altitude > s.flatRise && e.Altitude < 0:
+		case e.Altitude > s.rise && e.Altitude < 0:
 			// the date's sunrise and sunset come before and after: the
-			// refraction (and the dip) keep its upper limb in view
+			// refraction (and the dip, or a horizon below eye level) keep
+			// its upper limb in view
 			title = "Solar noon, Sun on the horizon"
-			b.WriteString(", its centre below the horizon, its upper limb in view over a flat horizon.\n" + cautionEyes)
+			b.WriteString(", its centre below the horizon, its upper limb in view over " + over + ".\n" + cautionEyes)
+		case e.Altitude <= s.rise && e.Altitude > s.flatRise:
+			// up over a flat horizon, but the site's raised horizon hides
+			// it: the date has no sunrise there
+			if e.Altitude < 0 {
+				b.WriteString(", its centre below the horizon")
+			}
+			b.WriteString(", its upper limb behind " + over + ".")
 		case e.Altitude < 0:
 			b.WriteString(", its centre below the horizon.")
 		default:

@@ -609,6 +609,29 @@ const dateBreaks = `[...document.querySelectorAll("table.days tbody th")].flatMa
   return out;
 })`
 
+// introDates lists the dates of the line under the /at table page's
+// heading ("… · times in Arctic/Longyearbyen · 2026-12-04 to 2027-01-02")
+// as they are shown: "2026-12-" over "04" when a line break splits one.
+const introDates = `(() => {
+  const p = document.querySelector(".intro"), r = document.createRange(), chars = [];
+  const walk = document.createTreeWalker(p, NodeFilter.SHOW_TEXT);
+  for (let node = walk.nextNode(); node; node = walk.nextNode()) {
+    for (let i = 0; i < node.length; i++) {
+      r.setStart(node, i); r.setEnd(node, i + 1);
+      chars.push([node.data[i], Math.round(r.getBoundingClientRect().top)]);
+    }
+  }
+  const text = chars.map(c => c[0]).join("");
+  return [...text.matchAll(/\d{4}-\d{2}-\d{2}/g)].map(m => {
+    let out = "";
+    for (let i = m.index; i < m.index + m[0].length; i++) {
+      if (i > m.index && chars[i][1] > chars[i - 1][1] + 2) out += " over ";
+      out += chars[i][0];
+    }
+    return JSON.stringify(out);
+  });
+})()`
+
 // On a phone the dates of the day-by-day table (/at) and of the builder's
 // preview are never split over two lines, down to a 320 px screen.
 func TestBrowserDatesWhole(t *testing.T) {
@@ -625,6 +648,13 @@ func TestBrowserDatesWhole(t *testing.T) {
 		}
 		if len(split) > 0 {
 			t.Errorf("the table page at %d px splits %d dates: %s", w, len(split), strings.Join(split, "; "))
+		}
+		intro, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](introDates))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if strings.Join(intro, " ") != `"2026-12-04" "2027-01-02"` {
+			t.Errorf("the table page's heading at %d px shows its dates as %s, want each on one line", w, strings.Join(intro, " and "))
 		}
 	}
 	if err := chromedp.Do(ctx,

@@ -330,11 +330,10 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 		v.Summary += " " + t.Text + "."
 	}
 	if v.Today != nil {
-		v.Summary += " Today (" + v.Today.Date + ") is marked"
-		if v.Today.PastW != "0" {
-			v.Summary += ", the weeks before it shaded"
-		}
-		v.Summary += "."
+		// The key names the shade over the weeks before today; said here,
+		// it was said twice. What the words count starts at today, while
+		// a feed's strokes may be drawn from before it.
+		v.Summary += " Today (" + v.Today.Date + ") is marked; the figures are for the year from it."
 	}
 	return v
 }

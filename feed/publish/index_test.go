@@ -494,6 +494,31 @@ func TestChartSummaryFromToday(t *testing.T) {
 	if strings.Contains(v.Summary, "stays down") || !strings.Contains(v.Summary, "Daylight from 3 h 00 min (13 Jan) to 9 h 00 min (19 Jan)") {
 		t.Errorf("summary %q: want the days from 13 Jan only", v.Summary)
 	}
+	// and say so, since the strokes of a feed can start before today
+	if want := " Today (13 Jan 2027) is marked; the figures are for the year from it."; !strings.HasSuffix(v.Summary, want) {
+		t.Errorf("summary %q: want it to end %q", v.Summary, want)
+	}
+}
+
+// The caption says once that the weeks before today are shaded: in the
+// key, beside today's line, not again in the words before it.
+func TestChartCaptionShadeOnce(t *testing.T) {
+	opts := testOptions()
+	opts.Charts = func(_ context.Context, s feed.Site, _ []Trimmed) (*SiteChart, error) {
+		c := usnoChart(t, s)
+		c.Today = c.Days[28].Date
+		return c, nil
+	}
+	doc := parseStrict(t, renderIndexFor(t, opts, testCalendars(t, "")))
+	caps := doc.all("figcaption")
+	if len(caps) == 0 {
+		t.Fatal("no chart caption")
+	}
+	for _, c := range caps {
+		if text := c.text(); strings.Count(text, "the weeks before it shaded") != 1 || !strings.Contains(text, "is marked; the figures are for the year from it.") {
+			t.Errorf("caption: %q", text)
+		}
+	}
 }
 
 // A mark is drawn and dated on the site's local date, as the chart's days

@@ -156,22 +156,34 @@ func (sky *Sky) Calendar(ctx context.Context, s *config.Site, f *config.Feed, fi
 
 // SiteOf converts a configured site for the renderers.
 func SiteOf(s *config.Site) Site {
-	return Site{ID: s.ID, Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude,
-		Elevation: s.Elevation, Location: s.TimeZone.Location}
+	site := Site{ID: s.ID, Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude,
+		Elevation: s.Elevation, Location: s.TimeZone.Location, Horizon: s.Horizon, Skyline: SkylineFactsOf(s.Skyline, s.HorizonFile)}
+	site.Pressure, site.Temperature = airOf(s)
+	return site
+}
+
+// airOf is the pressure (hPa) and temperature (°C) of the air at site s
+// the refraction is computed for: those configured, the standard
+// atmosphere's at the site's elevation for the one left out, or zero
+// (the standard refraction) without either.
+func airOf(s *config.Site) (pressure, temperature float64) {
+	if s.Pressure == nil && s.Temperature == nil {
+		return 0, 0
+	}
+	pressure, temperature = astro.StandardAtmosphere(s.Elevation)
+	if s.Pressure != nil {
+		pressure = *s.Pressure
+	}
+	if s.Temperature != nil {
+		temperature = *s.Temperature
+	}
+	return pressure, temperature
 }
 
 // PlaceOf is the observer and zone of a configured site.
 func PlaceOf(s *config.Site) Place {
 	o := astro.Observer{Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation, Horizon: s.Horizon}
-	if s.Pressure != nil || s.Temperature != nil {
-		o.Pressure, o.Temperature = astro.StandardAtmosphere(s.Elevation)
-		if s.Pressure != nil {
-			o.Pressure = *s.Pressure
-		}
-		if s.Temperature != nil {
-			o.Temperature = *s.Temperature
-		}
-	}
+	o.Pressure, o.Temperature = airOf(s)
 	pl := Place{Observer: o, Location: s.TimeZone.Location}
 	if len(s.Skyline) > 0 {
 		pts := make([]astro.SkyPoint, len(s.Skyline))

@@ -8,6 +8,7 @@
 package feed
 
 import (
+	"path/filepath"
 	"time"
 
 	"heliocal/astro"
@@ -88,6 +89,41 @@ type Site struct {
 	Longitude float64 // degrees, east positive
 	Elevation float64 // metres above sea level
 	Location  *time.Location
+	// Horizon is the altitude of the visible horizon in degrees (hills), 0
+	// for a flat one; Skyline, when its Points are not zero, the horizon
+	// per direction instead.
+	Horizon float64
+	Skyline SkylineFacts
+	// Pressure (hPa) and Temperature (°C) are the air the refraction is
+	// computed for; a zero Pressure is the standard refraction.
+	Pressure, Temperature float64
+}
+
+// SkylineFacts is a site's skyline (the horizon per direction) as its words
+// name it (SkylineText): its lowest and highest altitudes in degrees, its
+// number of points, and the base name of the CSV file it was read from, if
+// any.
+type SkylineFacts struct {
+	Low, High float64
+	Points    int
+	File      string
+}
+
+// SkylineFactsOf is the facts of skyline, [azimuth, altitude] points in
+// degrees read from file (a path, or "" for points written in the
+// configuration); zero for no points.
+func SkylineFactsOf(skyline [][2]float64, file string) SkylineFacts {
+	if len(skyline) == 0 {
+		return SkylineFacts{}
+	}
+	f := SkylineFacts{Low: skyline[0][1], High: skyline[0][1], Points: len(skyline)}
+	for _, p := range skyline {
+		f.Low, f.High = min(f.Low, p[1]), max(f.High, p[1])
+	}
+	if file != "" {
+		f.File = filepath.Base(file)
+	}
+	return f
 }
 
 // Calendar is one feed, ready to render: its header and its entries sorted by

@@ -463,6 +463,36 @@ func RefractionText(o astro.Observer) string {
 	return fmt.Sprintf("refraction for %.0f hPa and %s °C", o.Pressure, strings.Replace(strconv.FormatFloat(math.Round(o.Temperature*10)/10, 'f', -1, 64), "-", "−", 1))
 }
 
+// Conditions names what the times of site s are computed for besides its
+// place, when that is not a flat horizon and the standard refraction: its
+// horizon ("horizon 1.5°", "horizon −0.8°", or a skyline in SkylineText's
+// words) and its air ("refraction for 1030 hPa and −20 °C", RefractionText),
+// joined by a comma; "" for neither. The events table's heading, the index's
+// place lines and the served page's list of sites say it in these words.
+func (s Site) Conditions() string {
+	var words []string
+	switch {
+	case s.Skyline.Points > 0:
+		words = append(words, SkylineText(s.Skyline))
+	case s.Horizon != 0:
+		words = append(words, "horizon "+strings.Replace(strconv.FormatFloat(s.Horizon, 'f', -1, 64), "-", "−", 1)+"°")
+	}
+	if s.Pressure != 0 {
+		words = append(words, RefractionText(astro.Observer{Pressure: s.Pressure, Temperature: s.Temperature}))
+	}
+	return strings.Join(words, ", ")
+}
+
+// SkylineText is a skyline in a few words: "skyline 1–14° (8 points)",
+// with the file it was read from, if any: "(8 points, hills.csv)".
+func SkylineText(f SkylineFacts) string {
+	from := ""
+	if f.File != "" {
+		from = ", " + f.File
+	}
+	return fmt.Sprintf("skyline %s–%s° (%d points%s)", strconv.FormatFloat(f.Low, 'f', -1, 64), strconv.FormatFloat(f.High, 'f', -1, 64), f.Points, from)
+}
+
 // where names site s in a text with its coordinates: "Fernhollow Mixed Farm
 // (48.260° N, 15.920° E)"; a place named by its coordinates alone, as
 // `events --lat --lon` and ad-hoc feeds name it ("45.0000° S, 72.0000° W"), is

@@ -6,7 +6,6 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
-	"path/filepath"
 	"slices"
 	"strconv"
 	"strings"
@@ -98,22 +97,7 @@ func horizonText(s checkSite) string {
 	if len(s.Skyline) == 0 {
 		return strconv.FormatFloat(s.Horizon, 'f', -1, 64) + "°"
 	}
-	return skylineText(s.Skyline, s.SkylineFile)
-}
-
-// skylineText is a skyline per direction in a few words: "skyline 1–14° (8
-// points)", with the base name of the file it was read from, if any:
-// "(8 points, hills.csv)".
-func skylineText(skyline [][2]float64, file string) string {
-	lo, hi := skyline[0][1], skyline[0][1]
-	for _, p := range skyline {
-		lo, hi = min(lo, p[1]), max(hi, p[1])
-	}
-	from := ""
-	if file != "" {
-		from = ", " + filepath.Base(file)
-	}
-	return fmt.Sprintf("skyline %s–%s° (%d points%s)", strconv.FormatFloat(lo, 'f', -1, 64), strconv.FormatFloat(hi, 'f', -1, 64), len(skyline), from)
+	return feed.SkylineText(feed.SkylineFactsOf(s.Skyline, s.SkylineFile))
 }
 
 type checkFeed struct {

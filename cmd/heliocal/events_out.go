@@ -894,18 +894,13 @@ func newTableSink(w *bufio.Writer, s *config.Site) *tableSink {
 		place = s.Name + ": " + place
 	}
 	// what the times are for besides the place, when it is not the flat
-	// horizon and the standard refraction: as the feeds' descriptions say it
+	// horizon and the standard refraction, in the words of the index's
+	// place lines
 	var cond string
-	switch {
-	case len(s.Skyline) > 0:
-		cond = ", " + skylineText(s.Skyline, s.HorizonFile)
-	case s.Horizon != 0:
-		cond = ", horizon " + signed(s.Horizon, -1) + "°"
+	if c := feed.SiteOf(s).Conditions(); c != "" {
+		cond = ", " + c
 	}
 	o := feed.PlaceOf(s).Observer
-	if o.Pressure != 0 {
-		cond += ", " + feed.RefractionText(o)
-	}
 	fmt.Fprintf(w, "%s, %s m%s, %s\n\n", place, signed(s.Elevation, -1), cond, loc)
 	return &tableSink{w: w, loc: loc, o: o}
 }

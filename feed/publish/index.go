@@ -40,6 +40,7 @@ type indexView struct {
 
 type siteView struct {
 	ID, Name, Coords, Elevation, Zone string
+	Conditions                        string // the horizon and air, when not flat and standard (feed.Site.Conditions)
 	Chart                             *chartView
 	Feeds                             []feedView
 }
@@ -223,7 +224,7 @@ func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, 
 		sv := siteView{
 			ID: s.ID, Name: name, Coords: feed.Coords(s.Latitude, s.Longitude, 4), // "52.5200° N, 13.4050° E"
 			Elevation: strconv.FormatFloat(math.Round(s.Elevation), 'f', 0, 64) + " m",
-			Zone:      zone, Feeds: feeds,
+			Zone:      zone, Conditions: s.Conditions(), Feeds: feeds,
 		}
 		if charts != nil {
 			if err := ctx.Err(); err != nil {
@@ -313,7 +314,7 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{
 {{range .Sites}}
 <section id="site-{{.ID}}">
 <h2>{{.Name}}</h2>
-<p class="place">{{.Coords}}, elevation {{.Elevation}}, time zone {{.Zone}}</p>
+<p class="place">{{.Coords}}, elevation {{.Elevation}}{{with .Conditions}}, {{.}}{{end}}, time zone {{.Zone}}</p>
 {{with .Chart}}{{$step := .Step}}{{$id := .ID}}<figure>
 <svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 760 318" width="760" height="318" role="img">
 <title id="{{.ID}}-t">{{.Title}}</title>

@@ -74,6 +74,21 @@ type manifestSite struct {
 	Longitude float64 `json:"longitude"`
 	Elevation float64 `json:"elevation"`
 	TimeZone  string  `json:"timezone"`
+	// The horizon and the air, written only when they are not a flat
+	// horizon and the standard refraction (feed.Site): the merged index's
+	// place lines name them.
+	Horizon     float64          `json:"horizon,omitempty"`
+	Skyline     *manifestSkyline `json:"skyline,omitempty"`
+	Pressure    float64          `json:"pressure_hpa,omitempty"`
+	Temperature *float64         `json:"temperature_c,omitempty"` // with Pressure
+}
+
+// manifestSkyline is a site's skyline as its words name it (feed.SkylineFacts).
+type manifestSkyline struct {
+	Low    float64 `json:"low"`
+	High   float64 `json:"high"`
+	Points int     `json:"points"`
+	File   string  `json:"file,omitempty"`
 }
 
 func (l *listing) manifest(sh Shard, digest string) (File, error) {
@@ -86,7 +101,15 @@ func (l *listing) manifest(sh Shard, digest string) (File, error) {
 		if s.Location != nil {
 			zone = s.Location.String()
 		}
-		m.Sites = append(m.Sites, manifestSite{s.ID, s.Name, s.Latitude, s.Longitude, s.Elevation, zone})
+		ms := manifestSite{ID: s.ID, Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation,
+			TimeZone: zone, Horizon: s.Horizon, Pressure: s.Pressure}
+		if k := s.Skyline; k.Points > 0 {
+			ms.Skyline = &manifestSkyline{k.Low, k.High, k.Points, k.File}
+		}
+		if s.Pressure != 0 {
+			ms.Temperature = &s.Temperature
+		}
+		m.Sites = append(m.Sites, ms)
 	}
 	for _, t := range l.trimmed {
 		m.Trimmed = append(m.Trimmed, manifestTrim{t.Feed.ID, t.To.Format(time.DateOnly)})
@@ -387,8 +410,18 @@ func (w *Writer) mergeManifests(ctx context.Context, n int, digest string, opts 
 			if err != nil {
 				return nil, fmt.Errorf("publish: shard manifest: site %s: %w", s.ID, err)
 			}
-			l.sites = append(l.sites, feed.Site{ID: s.ID, Name: s.Name, Latitude: s.Latitude,
-				Longitude: s.Longitude, Elevation: s.Elevation, Location: loc})
+			site := feed.Site{ID: s.ID, Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation,
+				Location: loc, Horizon: s.Horizon, Pressure: s.Pressure}
+			if k := s.Skyline; k != nil {
+				if k.Points <= 0 {
+					return nil, fmt.Errorf("publish: shard manifest of shard %s: site %s: skyline.points: %d is not a number of points", m.Shard, s.ID, k.Points)
+				}
+				site.Skyline = feed.SkylineFacts{Low: k.Low, High: k.High, Points: k.Points, File: k.File}
+			}
+			if s.Temperature != nil {
+				site.Temperature = *s.Temperature
+			}
+			l.sites = append(l.sites, site)
 		}
 	}
 	l.finish(gen)

@@ -286,3 +286,45 @@ func TestMergeRefusesBadTrimmed(t *testing.T) {
 		})
 	}
 }
+
+// A shard manifest whose site has a skyline of no points is refused when
+// the last shard merges the manifests, the error naming the manifest's
+// shard, the site, the field and the value.
+func TestMergeRefusesBadSkyline(t *testing.T) {
+	dir := t.TempDir()
+	const n = 3
+	publishShard := func(i int) error {
+		o := testOptions()
+		o.Shard = Shard{Index: i, Count: n}
+		_, err := Publish(context.Background(), Calendars(testCalendars(t, "")...), o, &Writer{Dir: dir})
+		return err
+	}
+	for i := range n - 1 {
+		if err := publishShard(i); err != nil {
+			t.Fatal(err)
+		}
+	}
+	path := filepath.Join(dir, ManifestName(Shard{Index: 0, Count: n}))
+	raw, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var m manifestJSON
+	if err := json.Unmarshal(raw, &m); err != nil {
+		t.Fatal(err)
+	}
+	if len(m.Sites) == 0 {
+		t.Fatal("shard 0 lists no site: the test checks nothing")
+	}
+	m.Sites[0].Skyline = &manifestSkyline{Low: 1, High: 8, Points: 0}
+	if raw, err = json.Marshal(m); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(path, raw, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	want := "publish: shard manifest of shard 0/3: site " + m.Sites[0].ID + ": skyline.points: 0 is not a number of points"
+	if err := publishShard(n - 1); err == nil || err.Error() != want {
+		t.Errorf("the last shard: %v, want %s", err, want)
+	}
+}

@@ -475,7 +475,7 @@ func (s Site) Conditions() string {
 	case s.Skyline.Points > 0:
 		words = append(words, SkylineText(s.Skyline))
 	case s.Horizon != 0:
-		words = append(words, "horizon "+strings.Replace(strconv.FormatFloat(s.Horizon, 'f', -1, 64), "-", "−", 1)+"°")
+		words = append(words, "horizon "+plainDegrees(s.Horizon))
 	}
 	if s.Pressure != 0 {
 		words = append(words, RefractionText(astro.Observer{Pressure: s.Pressure, Temperature: s.Temperature}))
@@ -484,13 +484,25 @@ func (s Site) Conditions() string {
 }
 
 // SkylineText is a skyline in a few words: "skyline 1–14° (8 points)",
-// with the file it was read from, if any: "(8 points, hills.csv)".
+// with the file it was read from, if any: "(8 points, hills.csv)". A
+// skyline that dips below eye level has its range in words, with a proper
+// minus sign, "skyline −1° to 3°", where a dash would read as a second minus.
 func SkylineText(f SkylineFacts) string {
 	from := ""
 	if f.File != "" {
 		from = ", " + f.File
 	}
-	return fmt.Sprintf("skyline %s–%s° (%d points%s)", strconv.FormatFloat(f.Low, 'f', -1, 64), strconv.FormatFloat(f.High, 'f', -1, 64), f.Points, from)
+	span := strconv.FormatFloat(f.Low, 'f', -1, 64) + "–" + strconv.FormatFloat(f.High, 'f', -1, 64) + "°"
+	if f.Low < 0 {
+		span = plainDegrees(f.Low) + " to " + plainDegrees(f.High)
+	}
+	return fmt.Sprintf("skyline %s (%d points%s)", span, f.Points, from)
+}
+
+// plainDegrees writes an altitude with a proper minus sign and no plus:
+// "−0.8°", "3°".
+func plainDegrees(v float64) string {
+	return strings.Replace(strconv.FormatFloat(v, 'f', -1, 64), "-", "−", 1) + "°"
 }
 
 // where names site s in a text with its coordinates: "Fernhollow Mixed Farm
@@ -1235,7 +1247,7 @@ func between(lo, hi float64) string {
 
 // signedDegrees writes an altitude with its sign: "−4°", "+6°", "0°".
 func signedDegrees(v float64) string {
-	d := strings.Replace(strconv.FormatFloat(v, 'f', -1, 64), "-", "−", 1) + "°"
+	d := plainDegrees(v)
 	if v > 0 {
 		return "+" + d
 	}

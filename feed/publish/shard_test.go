@@ -232,65 +232,11 @@ func TestChartsLearnTrimmedFeeds(t *testing.T) {
 	}
 }
 
-// A shard manifest whose list of shortened feeds names a date that does not
-// exist or a feed the shard did not publish is refused when the last shard
-// merges the manifests, the error naming the manifest's shard, the field
-// and the value.
-func TestMergeRefusesBadTrimmed(t *testing.T) {
-	for _, tc := range []struct {
-		name string
-		bad  func(feeds []FeedInfo) manifestTrim
-		want string
-	}{
-		{"date", func(feeds []FeedInfo) manifestTrim { return manifestTrim{Feed: feeds[0].ID, To: "2027-02-30"} },
-			`publish: shard manifest of shard 0/3: trimmed[0].to: "2027-02-30" is not a date (YYYY-MM-DD)`},
-		{"feed", func([]FeedInfo) manifestTrim { return manifestTrim{Feed: "no-such-feed", To: "2027-02-01"} },
-			`publish: shard manifest of shard 0/3: trimmed[0].feed: "no-such-feed" is not one of the shard's feeds`},
-	} {
-		t.Run(tc.name, func(t *testing.T) {
-			dir := t.TempDir()
-			const n = 3
-			publishShard := func(i int) error {
-				o := testOptions()
-				o.Shard = Shard{Index: i, Count: n}
-				_, err := Publish(context.Background(), Calendars(testCalendars(t, "")...), o, &Writer{Dir: dir})
-				return err
-			}
-			for i := range n - 1 {
-				if err := publishShard(i); err != nil {
-					t.Fatal(err)
-				}
-			}
-			path := filepath.Join(dir, ManifestName(Shard{Index: 0, Count: n}))
-			raw, err := os.ReadFile(path)
-			if err != nil {
-				t.Fatal(err)
-			}
-			var m manifestJSON
-			if err := json.Unmarshal(raw, &m); err != nil {
-				t.Fatal(err)
-			}
-			if len(m.Feeds) == 0 {
-				t.Fatal("shard 0 published no feed: the test checks nothing")
-			}
-			m.Trimmed = []manifestTrim{tc.bad(m.Feeds)}
-			if raw, err = json.Marshal(m); err != nil {
-				t.Fatal(err)
-			}
-			if err := os.WriteFile(path, raw, 0o644); err != nil {
-				t.Fatal(err)
-			}
-			if err := publishShard(n - 1); err == nil || err.Error() != tc.want {
-				t.Errorf("the last shard: %v, want %s", err, tc.want)
-			}
-		})
-	}
-}
-
-// A shard manifest whose site has a skyline of no points is refused when
-// the last shard merges the manifests, the error naming the manifest's
-// shard, the site, the field and the value.
-func TestMergeRefusesBadSkyline(t *testing.T) {
+// mergeEdited publishes the first two of three shards, lets edit change
+// the manifest of shard 0 as it is on disk, and returns the error of the
+// last shard, which merges the manifests.
+func mergeEdited(t *testing.T, edit func(m *manifestJSON)) error {
+	t.Helper()
 	dir := t.TempDir()
 	const n = 3
 	publishShard := func(i int) error {
@@ -313,18 +259,54 @@ func TestMergeRefusesBadSkyline(t *testing.T) {
 	if err := json.Unmarshal(raw, &m); err != nil {
 		t.Fatal(err)
 	}
-	if len(m.Sites) == 0 {
-		t.Fatal("shard 0 lists no site: the test checks nothing")
+	if len(m.Feeds) == 0 || len(m.Sites) == 0 {
+		t.Fatal("shard 0 published no feed: the test checks nothing")
 	}
-	m.Sites[0].Skyline = &manifestSkyline{Low: 1, High: 8, Points: 0}
+	edit(&m)
 	if raw, err = json.Marshal(m); err != nil {
 		t.Fatal(err)
 	}
 	if err := os.WriteFile(path, raw, 0o644); err != nil {
 		t.Fatal(err)
 	}
-	want := "publish: shard manifest of shard 0/3: site " + m.Sites[0].ID + ": skyline.points: 0 is not a number of points"
-	if err := publishShard(n - 1); err == nil || err.Error() != want {
+	return publishShard(n - 1)
+}
+
+// A shard manifest whose list of shortened feeds names a date that does not
+// exist or a feed the shard did not publish is refused when the last shard
+// merges the manifests, the error naming the manifest's shard, the field
+// and the value.
+func TestMergeRefusesBadTrimmed(t *testing.T) {
+	for _, tc := range []struct {
+		name string
+		bad  func(feeds []FeedInfo) manifestTrim
+		want string
+	}{
+		{"date", func(feeds []FeedInfo) manifestTrim { return manifestTrim{Feed: feeds[0].ID, To: "2027-02-30"} },
+			`publish: shard manifest of shard 0/3: trimmed[0].to: "2027-02-30" is not a date (YYYY-MM-DD)`},
+		{"feed", func([]FeedInfo) manifestTrim { return manifestTrim{Feed: "no-such-feed", To: "2027-02-01"} },
+			`publish: shard manifest of shard 0/3: trimmed[0].feed: "no-such-feed" is not one of the shard's feeds`},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			err := mergeEdited(t, func(m *manifestJSON) { m.Trimmed = []manifestTrim{tc.bad(m.Feeds)} })
+			if err == nil || err.Error() != tc.want {
+				t.Errorf("the last shard: %v, want %s", err, tc.want)
+			}
+		})
+	}
+}
+
+// A shard manifest whose site has a skyline of no points is refused when
+// the last shard merges the manifests, the error naming the manifest's
+// shard, the site, the field and the value.
+func TestMergeRefusesBadSkyline(t *testing.T) {
+	var site string
+	err := mergeEdited(t, func(m *manifestJSON) {
+		site = m.Sites[0].ID
+		m.Sites[0].Skyline = &manifestSkyline{Low: 1, High: 8, Points: 0}
+	})
+	want := "publish: shard manifest of shard 0/3: site " + site + ": skyline.points: 0 is not a number of points"
+	if err == nil || err.Error() != want {
 		t.Errorf("the last shard: %v, want %s", err, want)
 	}
 }

@@ -141,6 +141,29 @@ func TestKindGroupsAreKinds(t *testing.T) {
 	_ = http.StatusOK
 }
 
+// The builder offers each twilight's dawn with its dusk: the evening's
+// crossing of an altitude without the morning's leaves an observer who
+// stays out, or a crew that sails at first light, without the other end.
+func TestKindGroupsPairDawnAndDusk(t *testing.T) {
+	offered := map[string]bool{}
+	for _, g := range kindGroups {
+		for _, k := range g.Kinds {
+			offered[k.Kind] = true
+		}
+	}
+	for k := range offered {
+		twin := ""
+		if stem, ok := strings.CutSuffix(k, "-dusk"); ok {
+			twin = stem + "-dawn"
+		} else if stem, ok := strings.CutSuffix(k, "-dawn"); ok {
+			twin = stem + "-dusk"
+		}
+		if twin != "" && !offered[twin] {
+			t.Errorf("the builder offers %s but not %s", k, twin)
+		}
+	}
+}
+
 // The page lists the configured sites and feeds in the order given, with
 // descriptions, only feeds being served, and the legal caution when asked;
 // without the builder the form is gone.

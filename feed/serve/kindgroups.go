@@ -36,6 +36,7 @@ var kindGroups = []kindGroup{
 		{Kind: "nautical-dusk", Label: "Nautical dusk", Explain: "the horizon fades; the brighter stars are out", Shift: true},
 		{Kind: "astronomical-dusk", Label: "Astronomical dusk", Explain: "night begins: the sky is fully dark (Sun 18° down)", Shift: true},
 		{Kind: "astronomical-dawn", Label: "Astronomical dawn", Explain: "night ends: the first trace of dawn in the east", Shift: true},
+		{Kind: "nautical-dawn", Label: "Nautical dawn", Explain: "the horizon shows again; only the brighter stars are left", Shift: true},
 		{Kind: "dark-window", Label: "Dark sky", Explain: "dark, moonless hours: full night with the Moon below the horizon"},
 		{Kind: "moonrise", Label: "Moonrise", Explain: "the Moon comes up", Shift: true},
 		{Kind: "moonset", Label: "Moonset", Explain: "the Moon goes down", Shift: true},

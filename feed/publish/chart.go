@@ -333,7 +333,7 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 		// The key names the shade over the weeks before today; said here,
 		// it was said twice. What the words count starts at today, while
 		// a feed's strokes may be drawn from before it.
-		v.Summary += " Today (" + v.Today.Date + ") is marked; the figures are for the year from it."
+		v.Summary += " Today at this site (" + v.Today.Date + ") is marked; the figures are for the year from it."
 	}
 	return v
 }

@@ -153,6 +153,9 @@ func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, 
 		v.Title = DefaultPageTitle
 	}
 	if !l.generated.IsZero() {
+		// a UTC date (RenderOptions.Generated), and the page says so: a
+		// chart's today is its site's local date, which near midnight is
+		// the day before or after
 		v.Generated = l.generated.Format("2 January 2006")
 	}
 	events, size := 0, int64(0)
@@ -305,7 +308,7 @@ svg .tl{fill:#287a36;stroke:#fbfaf6;stroke-width:3px;stroke-linejoin:round;paint
 <header>
 <h1>{{.Title}}</h1>
 {{with .Intro}}<p class="intro">{{.}}</p>{{end}}
-<p>{{.Feeds}} calendar feed{{if ne .Feeds 1}}s{{end}}, {{.Events}} event{{if ne .Events "1"}}s{{end}}, {{.Size}}{{if .Generated}}, computed on {{.Generated}}{{end}}.
+<p>{{.Feeds}} calendar feed{{if ne .Feeds 1}}s{{end}}, {{.Events}} event{{if ne .Events "1"}}s{{end}}, {{.Size}}{{if .Generated}}, computed on {{.Generated}} (UTC){{end}}.
 {{if .Relative}}Subscribe by adding a feed's address (the link below, made absolute with this page's address) to your calendar app as a subscription.{{else}}The webcal link subscribes in your calendar app; the https address can be pasted into any app's "subscribe by URL".{{end}}
 Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{.}}{{end}}</p>
 </header>

@@ -495,8 +495,46 @@ func TestChartSummaryFromToday(t *testing.T) {
 		t.Errorf("summary %q: want the days from 13 Jan only", v.Summary)
 	}
 	// and say so, since the strokes of a feed can start before today
-	if want := " Today (13 Jan 2027) is marked; the figures are for the year from it."; !strings.HasSuffix(v.Summary, want) {
+	if want := " Today at this site (13 Jan 2027) is marked; the figures are for the year from it."; !strings.HasSuffix(v.Summary, want) {
 		t.Errorf("summary %q: want it to end %q", v.Summary, want)
+	}
+}
+
+// The header's date is the build's UTC date and each chart's today is its
+// site's local date; near midnight they differ by a day, so the page says
+// whose each is. At 23:23 UTC on 4 December 2015 it is 5 December in
+// Sydney (AEDT, UTC+11 from 4 October 2015 to 3 April 2016: tz database,
+// australasia, rule AN).
+func TestIndexSaysWhoseDate(t *testing.T) {
+	built := time.Date(2015, 12, 4, 23, 23, 0, 0, time.UTC)
+	sydney, err := time.LoadLocation("Australia/Sydney")
+	if err != nil {
+		t.Fatal(err)
+	}
+	local := built.In(sydney)
+	opts := testOptions()
+	opts.Generated = time.Date(built.Year(), built.Month(), built.Day(), 0, 0, 0, 0, time.UTC)
+	opts.Charts = func(_ context.Context, s feed.Site, _ []Trimmed) (*SiteChart, error) {
+		c := usnoChart(t, s)
+		c.Today = time.Date(local.Year(), local.Month(), local.Day(), 0, 0, 0, 0, time.UTC)
+		return c, nil
+	}
+	doc := parseStrict(t, renderIndexFor(t, opts, testCalendars(t, "")))
+	var header string
+	for _, h := range doc.all("header") {
+		header += h.text()
+	}
+	if want := "computed on 4 December 2015 (UTC)."; !strings.Contains(header, want) {
+		t.Errorf("header %q: want it to say %q", header, want)
+	}
+	caps := doc.all("figcaption")
+	if len(caps) == 0 {
+		t.Fatal("no chart caption")
+	}
+	for _, c := range caps {
+		if want := "Today at this site (5 Dec 2015) is marked"; !strings.Contains(c.text(), want) {
+			t.Errorf("caption %q: want it to say %q", c.text(), want)
+		}
 	}
 }
 

@@ -33,7 +33,7 @@ func newServeCommand(g *globals) *cobra.Command {
 		Use:   "serve",
 		Short: "Serve the feeds over HTTP and refresh them on schedule",
 		Long: `Serve the configured feeds over HTTP: / (the page: a calendar builder and the feeds),
-/index.html, /feeds/<id>.ics, /feeds.json, /healthz, /metrics, ad-hoc feeds for any place at
+/index.html, /<id>.ics, /feeds.json, /healthz, /metrics, ad-hoc feeds for any place at
 /at.ics?lat=..&lon=..&kinds=..&days=.. (tz found from the coordinates unless given), their
 seven-day preview at /at.json?.. and a printable day-by-day table at /at?..
 The feeds are rebuilt on the configured schedule (service.refresh, nightly at 03:15 by default)

@@ -108,6 +108,27 @@ func TestServeDemo(t *testing.T) {
 		t.Errorf("served feed does not parse: %v", err)
 	}
 
+	// One address for a feed wherever it is copied from: the page at /, the
+	// index (a link relative to /index.html) and feeds.json all give
+	// /<id>.ics, where publish writes the file (docs/serving.md, routes).
+	want := base + "/fernhollow-sun.ics"
+	if _, home := get("/"); !strings.Contains(home, `href="`+want+`"`) || strings.Contains(home, "/feeds/fernhollow-sun.ics") {
+		t.Errorf("the page at / does not link %s", want)
+	}
+	if _, index := get("/index.html"); !strings.Contains(index, `href="fernhollow-sun.ics"`) {
+		t.Errorf("/index.html does not link fernhollow-sun.ics")
+	}
+	_, list := get("/feeds.json")
+	var feeds struct{ Feeds []struct{ ID, URL string } }
+	if err := json.Unmarshal([]byte(list), &feeds); err != nil {
+		t.Fatalf("feeds.json: %v", err)
+	}
+	for _, f := range feeds.Feeds {
+		if f.ID == "fernhollow-sun" && f.URL != want {
+			t.Errorf("feeds.json: url %q, want %q", f.URL, want)
+		}
+	}
+
 	// An ad-hoc feed for a place: the sunrise of 2027-06-21 in Vienna, one day.
 	resp, body = get("/at.ics?lat=48.2&lon=16.4&tz=Europe/Vienna&kinds=sunrise&days=1&start=2027-06-21")
 	if resp.StatusCode != http.StatusOK || !strings.Contains(body, "DTSTART;TZID=Europe/Vienna:20270621T04") {

@@ -771,6 +771,7 @@ type homeView struct {
 	Groups  []kindGroup
 	Sites   []PageSite
 	Feeds   []homeFeed // when the page has no sites: feeds.json's
+	Index   string     // the published index.html (the sites' year charts), absolute
 	Today   string
 }
 
@@ -779,12 +780,15 @@ func (s *Server) serveHome(w http.ResponseWriter, r *http.Request) {
 	v := homeView{Page: p, Builder: !p.NoBuilder, Legal: p.Legal || !p.NoBuilder, Groups: kindGroups, Today: s.now().Format(time.DateOnly)}
 	snap := s.snap.Load()
 	base := s.baseFor(r)
+	if snap != nil && snap.files["index.html"] != nil {
+		v.Index = base + "index.html"
+	}
 	if snap != nil && len(p.Sites) > 0 {
 		for _, site := range p.Sites {
 			ps := PageSite{Name: site.Name, Place: site.Place}
 			for _, f := range site.Feeds {
 				if snap.files[f.ID+".ics"] != nil { // only feeds being served
-					f.HTTPS = base + "feeds/" + url.PathEscape(f.ID) + ".ics"
+					f.HTTPS = feedAddress(base, f.ID+".ics")
 					ps.Feeds = append(ps.Feeds, f)
 				}
 			}

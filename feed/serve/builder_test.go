@@ -165,8 +165,9 @@ func TestKindGroupsPairDawnAndDusk(t *testing.T) {
 }
 
 // The page lists the configured sites and feeds in the order given, with
-// descriptions, only feeds being served, and the legal caution when asked;
-// without the builder the form is gone.
+// descriptions, only feeds being served (at the address index.html and
+// feeds.json give them), a link to the year charts of index.html, and the
+// legal caution when asked; without the builder the form is gone.
 func TestPageSitesAndCaution(t *testing.T) {
 	s := builderTestServer(t)
 	s.SetPage(PageInfo{Title: "Kestrel Ridge sky", Contact: "Ask the warden", Legal: true, NoBuilder: true, Sites: []PageSite{
@@ -178,7 +179,7 @@ func TestPageSitesAndCaution(t *testing.T) {
 	if kestrel < 0 || meadow < kestrel {
 		t.Errorf("sites not in the order given (%d, %d)", kestrel, meadow)
 	}
-	for _, want := range []string{"Moonrise and moonset.", "http://example.com/feeds/kestrel-ridge-moon.ics", "webcal://example.com/feeds/meadowbrook-sun.ics", "Ask the warden", LegalCaution, DefaultCaution} {
+	for _, want := range []string{"Moonrise and moonset.", "http://example.com/kestrel-ridge-moon.ics", "webcal://example.com/meadowbrook-sun.ics", `<a href="http://example.com/index.html">Year charts</a>`, "Ask the warden", LegalCaution, DefaultCaution} {
 		if !strings.Contains(b, want) {
 			t.Errorf("the page lacks %q", want)
 		}

@@ -21,8 +21,8 @@ import (
 // The routes:
 //
 //	/, /index.html        the index page (the bundle's index.html)
-//	/feeds/<id>.ics       a feed (the bundle's <id>.ics)
-//	/<id>.ics             the same feed at the published directory's layout
+//	/<id>.ics             a feed (the bundle's <id>.ics), at the published directory's layout
+//	/feeds/<id>.ics       the same feed (the address the page gave before)
 //	/feeds.json           the list of feeds
 //	/at.ics?…             an ad-hoc feed (see AdhocQuery and the Param constants)
 //	/healthz              200 once feeds are served, 503 before

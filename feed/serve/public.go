@@ -113,6 +113,15 @@ func plainHost(h string) bool {
 	return true
 }
 
+// feedAddress is the address the pages and feeds.json give a feed's file:
+// beside index.html, as publish lays the files out and as the feeds' own
+// SOURCE says (base_url and the file), so that one address works whether
+// the directory is published or served. /feeds/<file> answers too, for
+// the links given before.
+func feedAddress(base, file string) string {
+	return base + url.PathEscape(file)
+}
+
 // webcal turns an http(s) URL into its webcal:// form.
 func webcal(u string) string {
 	_, rest, ok := strings.Cut(u, "://")
@@ -167,7 +176,7 @@ func withURLs(doc []byte, base string) ([]byte, bool) {
 			file = id + ".ics"
 		}
 		if u, _ := f["url"].(string); u == "" && file != "" {
-			f["url"] = base + "feeds/" + url.PathEscape(file)
+			f["url"] = feedAddress(base, file)
 			changed = true
 		}
 	}

@@ -74,8 +74,8 @@ func TestFeedsJSONCarriesURL(t *testing.T) {
 		t.Fatalf("no feeds in %s", w.Body)
 	}
 	for _, f := range list {
-		if !strings.HasPrefix(f.URL, "http://greenhouse.lan:8080/feeds/") {
-			t.Errorf("feed %s: url %q, want it under http://greenhouse.lan:8080/feeds/", f.ID, f.URL)
+		if want := "http://greenhouse.lan:8080/" + f.ID + ".ics"; f.URL != want {
+			t.Errorf("feed %s: url %q, want %q (beside index.html, as published)", f.ID, f.URL, want)
 		}
 	}
 }

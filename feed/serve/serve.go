@@ -10,7 +10,8 @@
 // Routes (GET and HEAD only; anything else is 405 with an Allow header):
 //
 //	/, /index.html     the bundle's index.html
-//	/feeds/<id>.ics    a feed; also at /<id>.ics, the published directory's layout
+//	/<id>.ics          a feed, at the published directory's layout (the address
+//	                   the pages and feeds.json give); also at /feeds/<id>.ics
 //	/feeds.json        the list of feeds (the bundle's, or one made from Bundle.Feeds)
 //	/at.ics?…          an ad-hoc feed for any place (see AdhocQuery)
 //	/healthz           JSON; 200 once feeds are served, 503 before the first good build

@@ -259,7 +259,7 @@ func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, 
 // entities), which keeps it easy to check and to post-process.
 // indexTemplate is parsed on first use, not when any command starts.
 var indexTemplate = sync.OnceValue(func() *template.Template {
-	return template.Must(template.New("index").Parse(`<!DOCTYPE html>
+	return template.Must(template.New("index").Funcs(template.FuncMap{"urlBreaks": URLBreaks}).Parse(`<!DOCTYPE html>
 <html lang="en">
 <head>
 <meta charset="utf-8"/>
@@ -276,7 +276,7 @@ th,td{text-align:left;padding:.35rem .5rem;border-bottom:1px solid #e4e2dc;verti
 td.num,th.num{text-align:right;white-space:nowrap}
 th:last-child{width:10em}
 .unit{display:none}
-code{font-size:.85em;word-break:break-all}
+code{font-size:.85em}
 figure{margin:0 0 1rem}
 figcaption{font-size:.9rem;color:#444}
 svg{max-width:100%;height:auto;display:block}
@@ -346,7 +346,7 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{
 {{end}}<table>
 <thead><tr><th>Feed</th><th class="num">Events</th><th class="num">Size</th><th>Subscribe</th></tr></thead>
 <tbody>
-{{range .Feeds}}<tr id="feed-{{.ID}}"><td><strong>{{.Title}}</strong>{{with .Description}}<br/>{{.}}{{end}}<br/><code>{{.ID}}</code></td><td class="num">{{.Events}}<span class="unit"> event{{if ne .Events "1"}}s{{end}}</span></td><td class="num">{{.Size}}</td><td>{{if .Webcal}}<a href="{{.Webcal}}">webcal</a> · {{end}}<a href="{{.HTTPS}}">{{if .Webcal}}https{{else}}{{.File}}{{end}}</a>{{if .Webcal}}<br/><code>{{.HTTPS}}</code>{{end}}</td></tr>
+{{range .Feeds}}<tr id="feed-{{.ID}}"><td><strong>{{.Title}}</strong>{{with .Description}}<br/>{{.}}{{end}}<br/><code>{{.ID}}</code></td><td class="num">{{.Events}}<span class="unit"> event{{if ne .Events "1"}}s{{end}}</span></td><td class="num">{{.Size}}</td><td>{{if .Webcal}}<a href="{{.Webcal}}">webcal</a> · {{end}}<a href="{{.HTTPS}}">{{if .Webcal}}https{{else}}{{.File}}{{end}}</a>{{if .Webcal}}<br/><code>{{urlBreaks .HTTPS}}</code>{{end}}</td></tr>
 {{end}}</tbody>
 </table>
 </section>

@@ -538,6 +538,20 @@ func TestIndexSaysWhoseDate(t *testing.T) {
 	}
 }
 
+// A feed's address on the index wraps only at its natural points: the page
+// marks them (<wbr/>) and breaks no word anywhere (word-break: break-all
+// cut "sky.exampl" / "e.net" at 1280 px), keeping overflow-wrap on the
+// cells for a part longer than a phone's line.
+func TestIndexURLsBreakAtNaturalPoints(t *testing.T) {
+	page := string(renderIndexFor(t, testOptions(), testCalendars(t, "")))
+	if want := "<code>https://<wbr/>sky.<wbr/>example.<wbr/>org/<wbr/>cal/<wbr/>ice-<wbr/>camp-<wbr/>sun.<wbr/>ics</code>"; !strings.Contains(page, want) {
+		t.Errorf("the index lacks %q", want)
+	}
+	if strings.Contains(page, "break-all") || !strings.Contains(page, "overflow-wrap:anywhere") {
+		t.Errorf("the index's style breaks words anywhere, or nothing wraps a long part")
+	}
+}
+
 // The caption says once that the weeks before today are shaded: in the
 // key, beside today's line, not again in the words before it.
 func TestChartCaptionShadeOnce(t *testing.T) {

@@ -110,8 +110,9 @@ var assetFiles embed.FS
 var (
 	pageTemplates = sync.OnceValue(func() *template.Template {
 		return template.Must(template.New("").Funcs(template.FuncMap{
-			"webcal": func(u string) template.URL { return template.URL(webcal(u)) },
-			"legal":  func() string { return LegalCaution },
+			"webcal":    func(u string) template.URL { return template.URL(webcal(u)) },
+			"urlBreaks": publish.URLBreaks,
+			"legal":     func() string { return LegalCaution },
 		}).ParseFS(assetFiles, "assets/*.html"))
 	})
 	staticAssets = sync.OnceValue(loadStatic)

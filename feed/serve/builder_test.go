@@ -184,6 +184,13 @@ func TestPageSitesAndCaution(t *testing.T) {
 			t.Errorf("the page lacks %q", want)
 		}
 	}
+	// the addresses wrap at their natural points, never inside a word
+	if want := `class="url">http://<wbr/>example.<wbr/>com/<wbr/>kestrel-<wbr/>ridge-<wbr/>moon.<wbr/>ics</a>`; !strings.Contains(b, want) {
+		t.Errorf("the page lacks %q", want)
+	}
+	if css := body(t, get(t, s.Handler(), "GET", "/assets/builder.css")); strings.Contains(css, "break-all") {
+		t.Errorf("builder.css breaks words anywhere (word-break: break-all)")
+	}
 	if strings.Contains(b, "not-built") || strings.Contains(b, `id="builder"`) {
 		t.Errorf("the page lists a feed not served, or shows the builder it should not")
 	}

@@ -475,7 +475,7 @@ func (s Site) Conditions() string {
 	case s.Skyline.Points > 0:
 		words = append(words, SkylineText(s.Skyline))
 	case s.Horizon != 0:
-		words = append(words, "horizon "+plainDegrees(s.Horizon))
+		words = append(words, "horizon "+AltitudeText(s.Horizon))
 	}
 	if s.Pressure != 0 {
 		words = append(words, RefractionText(astro.Observer{Pressure: s.Pressure, Temperature: s.Temperature}))
@@ -494,14 +494,14 @@ func SkylineText(f SkylineFacts) string {
 	}
 	span := strconv.FormatFloat(f.Low, 'f', -1, 64) + "–" + strconv.FormatFloat(f.High, 'f', -1, 64) + "°"
 	if f.Low < 0 {
-		span = plainDegrees(f.Low) + " to " + plainDegrees(f.High)
+		span = AltitudeText(f.Low) + " to " + AltitudeText(f.High)
 	}
 	return fmt.Sprintf("skyline %s (%d points%s)", span, f.Points, from)
 }
 
-// plainDegrees writes an altitude with a proper minus sign and no plus:
+// AltitudeText writes an altitude with a proper minus sign and no plus:
 // "−0.8°", "3°".
-func plainDegrees(v float64) string {
+func AltitudeText(v float64) string {
 	return strings.Replace(strconv.FormatFloat(v, 'f', -1, 64), "-", "−", 1) + "°"
 }
 
@@ -1247,7 +1247,7 @@ func between(lo, hi float64) string {
 
 // signedDegrees writes an altitude with its sign: "−4°", "+6°", "0°".
 func signedDegrees(v float64) string {
-	d := plainDegrees(v)
+	d := AltitudeText(v)
 	if v > 0 {
 		return "+" + d
 	}

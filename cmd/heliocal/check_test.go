@@ -102,7 +102,7 @@ func TestCheckJSON(t *testing.T) {
 	for _, s := range r.Sites {
 		switch s.ID {
 		case "cairnmoor":
-			if s.Horizon != -0.8 || s.Skyline != nil || !strings.Contains(text, "-0.8°") {
+			if s.Horizon != -0.8 || s.Skyline != nil || !strings.Contains(text, "−0.8°") {
 				t.Errorf("cairnmoor horizon %+v", s)
 			}
 		case "brackenfold":

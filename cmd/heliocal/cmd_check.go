@@ -7,7 +7,6 @@ import (
 	"errors"
 	"fmt"
 	"slices"
-	"strconv"
 	"strings"
 	"text/tabwriter"
 	"time"
@@ -91,11 +90,12 @@ type checkSite struct {
 	TimeZoneInferred bool   `json:"timezone_inferred"`
 }
 
-// horizonText is a site's horizon in the table: "0°", "1.5°", or
-// "skyline 1–14° (8 points, hills.csv)".
+// horizonText is a site's horizon in the table: "0°", "1.5°", "−0.8°", or
+// "skyline 1–14° (8 points, hills.csv)", with the minus sign of every
+// altitude the texts write.
 func horizonText(s checkSite) string {
 	if len(s.Skyline) == 0 {
-		return strconv.FormatFloat(s.Horizon, 'f', -1, 64) + "°"
+		return feed.AltitudeText(s.Horizon)
 	}
 	return feed.SkylineText(feed.SkylineFactsOf(s.Skyline, s.SkylineFile))
 }

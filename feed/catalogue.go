@@ -142,6 +142,9 @@ func (sky *Sky) Calendar(ctx context.Context, s *config.Site, f *config.Feed, fi
 		LastDate:    last,
 		Stamp:       first,
 	}
+	if !opts.Now.IsZero() {
+		cal.Today = localDate(opts.Now, loc)
+	}
 	if opts.FeedURL != nil {
 		cal.URL = opts.FeedURL(f.ID)
 	}
@@ -359,7 +362,7 @@ var (
 // that of their descriptions, titles and UIDs (substrings of c.text),
 // serves a calendar built after. Neither the entries nor any string taken
 // from them may be used after the call; c's other fields (ID, Title,
-// Site, URL, Stamp, TrimmedTo) are not pooled and stay as they are.
+// Site, URL, Stamp, Today, TrimmedTo) are not pooled and stay as they are.
 func (c *Calendar) Release() {
 	releasedEntries.put(c.Entries)
 	c.Entries = nil

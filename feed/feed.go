@@ -155,6 +155,10 @@ type Calendar struct {
 	// window (00:00 UTC), as the calendar was built for them (TrimmedTo is
 	// where a shortened one reaches).
 	FirstDate, LastDate time.Time
+	// Today is the local date (00:00 UTC) the window was counted from, the
+	// date Options.Now is in the site's zone; zero for a calendar built
+	// without Options.Now (over dates given outright).
+	Today time.Time
 	// Stamp is the deterministic DTSTAMP / LAST-MODIFIED: derived from the
 	// inputs (e.g. the window start), never from the wall clock.
 	Stamp   time.Time

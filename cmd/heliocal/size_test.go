@@ -3,12 +3,15 @@ package main
 import (
 	"context"
 	"encoding/json"
+	"io"
 	"os"
 	"path/filepath"
 	"regexp"
+	"slices"
 	"strconv"
 	"strings"
 	"testing"
+	"time"
 )
 
 // meadowOversize is a feed of a few hundred kB over a max_feed_bytes of 20 kB.
@@ -235,5 +238,89 @@ func TestTrimmedFeedNumbersOneWay(t *testing.T) {
 	code, _, pubErr := runCLI(t, "publish", "--config", cfg, "--out", filepath.Join(t.TempDir(), "public"))
 	if code != 0 || !strings.Contains(pubErr, note) || !strings.Contains(pubErr, ", "+row[1]+" events, "+row[2]+" in ") {
 		t.Errorf("publish: exit %d, stderr %q; want the note %q and the summary's %s events, %s", code, pubErr, note, row[1], row[2])
+	}
+}
+
+// Under oversize: trim a feed that fits max_feed_bytes only shortened to a
+// date before today at its site (here 12 kB of 40 days back and 30 ahead)
+// is refused as one with no entry left is: check exits 1 naming it, its
+// shortened date and today's date there (in JSON among refused, with its
+// whole size), publish exits 1 naming it and writes nothing, serve exits 1
+// at start. A subscribed calendar of past days alone would be useless.
+func TestTrimBeforeTodayRefused(t *testing.T) {
+	yaml := strings.NewReplacer("max_feed_bytes: 20000\n", "max_feed_bytes: 12000\n  oversize: trim\n",
+		"days_back: 0", "days_back: 40", "days_ahead: 200", "days_ahead: 30").Replace(meadowOversize)
+	cfg := writeConfig(t, yaml)
+	zurich, err := time.LoadLocation("Europe/Zurich")
+	if err != nil {
+		t.Fatal(err)
+	}
+	// today at the site, read before and after a run (which may span
+	// midnight there)
+	todays := func(run func()) []string {
+		before := time.Now().In(zurich).Format(time.DateOnly)
+		run()
+		return []string{before, time.Now().In(zurich).Format(time.DateOnly)}
+	}
+	refusal := regexp.MustCompile(`feed "meadow" is (\d+(?:\.\d+)? kB), over service\.max_feed_bytes \(12 kB\): publish and serve refuse it \(service\.oversize: trim would shorten it to (\d{4}-\d\d-\d\d), before today at its site \((\d{4}-\d\d-\d\d)\), leaving past days alone\); lower days_back or raise service\.max_feed_bytes`)
+	refusedOn := func(what, msg string, days []string) {
+		t.Helper()
+		m := refusal.FindStringSubmatch(msg)
+		if m == nil || !slices.Contains(days, m[3]) || m[2] >= m[3] {
+			t.Errorf("%s: %q; want %s with today %v", what, msg, refusal, days)
+		}
+	}
+
+	var code int
+	var out, errOut string
+	days := todays(func() { code, out, errOut = runCLI(t, "check", "--config", cfg) })
+	if code != exitFailure || strings.Contains(errOut, "no entry left") || strings.Contains(out, "shortened to") {
+		t.Errorf("check: exit %d, stdout %q, stderr %q", code, out, errOut)
+	}
+	refusedOn("check", errOut, days)
+
+	days = todays(func() { code, out, errOut = runCLI(t, "check", "--config", cfg, "--format", "json") })
+	var r struct {
+		Refused []string
+		Feeds   []struct {
+			Bytes     int
+			Oversize  bool
+			TrimmedTo string `json:"trimmed_to"`
+		}
+	}
+	if err := json.Unmarshal([]byte(out), &r); err != nil {
+		t.Fatal(err)
+	}
+	if code != exitFailure || errOut != "" || len(r.Refused) != 1 || len(r.Feeds) != 1 || !r.Feeds[0].Oversize || r.Feeds[0].TrimmedTo != "" || r.Feeds[0].Bytes <= 12000 {
+		t.Errorf("check json: exit %d, stderr %q, report %+v", code, errOut, r)
+	} else {
+		refusedOn("check json", r.Refused[0], days)
+	}
+
+	pub := filepath.Join(t.TempDir(), "public")
+	days = todays(func() { code, _, errOut = runCLI(t, "publish", "--config", cfg, "--out", pub) })
+	if m := regexp.MustCompile(`feed meadow: .* trim would shorten it to (\d{4}-\d\d-\d\d), before today at its site \((\d{4}-\d\d-\d\d)\), leaving past days alone; lower days_back or raise service\.max_feed_bytes`).FindStringSubmatch(errOut); code != exitFailure || m == nil || !slices.Contains(days, m[2]) || m[1] >= m[2] {
+		t.Errorf("publish: exit %d, stderr %q", code, errOut)
+	}
+	if files, _ := filepath.Glob(filepath.Join(pub, "*")); len(files) != 0 {
+		t.Errorf("a refused publish wrote %v", files)
+	}
+
+	ctx, cancel := context.WithCancel(context.Background())
+	defer cancel()
+	logs := &lockedBuffer{}
+	done := make(chan int, 1)
+	go func() {
+		done <- run(ctx, []string{"serve", "--config", cfg, "--listen", freePort(t), "--access-log=false"}, io.Discard, logs, noEnv)
+	}()
+	select {
+	case code := <-done:
+		last := logs.String()[strings.LastIndex(strings.TrimSuffix(logs.String(), "\n"), "\n")+1:]
+		if code != exitFailure || !strings.HasPrefix(last, "heliocal: ") || !strings.Contains(last, "feed meadow: ") || !strings.Contains(last, "before today at its site") {
+			t.Errorf("serve exited %d, last line %q", code, last)
+		}
+	case <-time.After(60 * time.Second):
+		cancel()
+		t.Fatalf("serve still runs with a refused feed:\n%s", logs.String())
 	}
 }

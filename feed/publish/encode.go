@@ -64,17 +64,28 @@ const (
 )
 
 // OversizeError is a feed larger than the limit under OversizeFail, or,
-// with Trimmed, one still larger with no entry left under OversizeTrim
-// (its header and description alone are over the limit).
+// with Trimmed, one that OversizeTrim cannot shorten to a calendar worth
+// publishing: still larger with no entry left (its header and description
+// alone are over the limit), or, with TrimmedTo set, one that fits only
+// shortened to TrimmedTo, a date before Today at its site, so that it
+// would show past days alone. Bytes is the size of the feed as it was
+// refused: with no entry left, or whole when shortened before Today.
 type OversizeError struct {
 	Feed         string
 	Bytes, Limit int
 	Trimmed      bool
+	// TrimmedTo and Today are the last local date the shortened feed
+	// would reach and the date at its site its window was counted from.
+	TrimmedTo, Today time.Time
 }
 
 func (e *OversizeError) Error() string {
 	size, limit := FormatBytesOver(int64(e.Bytes), int64(e.Limit))
-	if e.Trimmed {
+	switch {
+	case !e.TrimmedTo.IsZero():
+		return fmt.Sprintf("%s, over service.max_feed_bytes (%s): service.oversize: trim would shorten it to %s, before today at its site (%s), leaving past days alone; lower days_back or raise service.max_feed_bytes",
+			size, limit, e.TrimmedTo.Format(time.DateOnly), e.Today.Format(time.DateOnly))
+	case e.Trimmed:
 		return fmt.Sprintf("%s with no entry left, over service.max_feed_bytes (%s): service.oversize: trim cannot shorten it enough; raise service.max_feed_bytes", size, limit)
 	}
 	return fmt.Sprintf("%s, over service.max_feed_bytes (%s): shorten days_back/days_ahead, split the kinds, or set service.oversize: trim", size, limit)
@@ -83,10 +94,13 @@ func (e *OversizeError) Error() string {
 // trimToFit drops c's entries from the far end of its window, whole local
 // dates at a time, until its encoding fits in limit bytes, and says in the
 // calendar's description how far it now reaches (c.TrimmedTo). buf[n:] is
-// c's encoding before trimming; each new encoding replaces it.
+// c's encoding before trimming; each new encoding replaces it. A feed that
+// fits only shortened to a date before c.Today (when set) is refused
+// whole: c is left as it came and the error is an *OversizeError with
+// TrimmedTo; so is one with no entry left, with Trimmed.
 func trimToFit(c *feed.Calendar, buf []byte, n, limit int, enc encodeFunc) ([]byte, error) {
 	data := buf[n:]
-	desc := c.Description
+	whole, entries0, desc, windowEnd := len(data), len(c.Entries), c.Description, c.WindowEnd
 	for len(data) > limit {
 		entries := len(c.Entries)
 		if entries == 0 {
@@ -98,6 +112,11 @@ func trimToFit(c *feed.Calendar, buf []byte, n, limit int, enc encodeFunc) ([]by
 		last := c.Entries[max(keep, 0)].Date.AddDate(0, 0, -1)
 		if !last.Before(c.Entries[entries-1].Date) {
 			last = c.Entries[entries-1].Date.AddDate(0, 0, -1)
+		}
+		// try today before any earlier date: a feed that reaches today
+		// fits or none does
+		if last.Before(c.Today) && c.Today.Before(c.Entries[entries-1].Date) {
+			last = c.Today
 		}
 		kept := c.Entries[:0]
 		for _, e := range c.Entries {
@@ -122,6 +141,13 @@ func trimToFit(c *feed.Calendar, buf []byte, n, limit int, enc encodeFunc) ([]by
 			return buf[:n], err
 		}
 		data = buf[n:]
+	}
+	if c.TrimmedTo.Before(c.Today) {
+		// the entries are sorted by date: those kept are the first ones,
+		// in place, and the others are still behind them
+		to := c.TrimmedTo
+		c.Entries, c.Description, c.WindowEnd, c.TrimmedTo = c.Entries[:entries0], desc, windowEnd, time.Time{}
+		return buf[:n], &OversizeError{Feed: c.ID, Bytes: whole, Limit: limit, Trimmed: true, TrimmedTo: to, Today: c.Today}
 	}
 	return buf, nil
 }

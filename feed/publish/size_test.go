@@ -10,6 +10,7 @@ import (
 
 	"heliocal/config"
 	"heliocal/feed"
+	"heliocal/feed/ical"
 )
 
 // typicalFeed is a single site's everyday feed: sunrise, sunset, a reminder
@@ -134,6 +135,86 @@ func TestOversize(t *testing.T) {
 		if !strings.Contains(msg, "with no entry left, over service.max_feed_bytes (1 kB)") || !strings.Contains(msg, "raise service.max_feed_bytes") || strings.Contains(msg, "set service.oversize") || strings.Contains(msg, "oversize: fail") {
 			t.Errorf("trim to nothing: %q", msg)
 		}
+	}
+}
+
+// Under service.oversize: trim a feed that fits only shortened to a date
+// before today at its site (a long days_back, a small limit) is refused
+// whole, as one with no entry left is: a subscribed calendar of past days
+// alone would be silently useless. One that fits shortened to today is
+// published, reaching today.
+func TestTrimBeforeToday(t *testing.T) {
+	cfg, f := typicalFeed(t, 51.75, -1.26, "Europe/London")
+	f.DaysBack = 400
+	today := time.Date(2027, 3, 1, 0, 0, 0, 0, time.UTC) // encodeFeed's Now, in London
+	whole, data, err := encodeFeed(t, cfg, f, &RenderOptions{MaxFeedBytes: 400000})
+	if err != nil || !whole.Today.Equal(today) {
+		t.Fatalf("warn: today %s, %v", whole.Today.Format(time.DateOnly), err)
+	}
+	// the size of the feed shortened to today, as trim writes it
+	n := 0
+	for n < len(whole.Entries) && !whole.Entries[n].Date.After(today) {
+		n++
+	}
+	if n == len(whole.Entries) || n == 0 {
+		t.Fatalf("%d of %d entries up to %s: the test needs entries on both sides of today", n, len(whole.Entries), today.Format(time.DateOnly))
+	}
+	toToday := *whole
+	toToday.Entries = whole.Entries[:n]
+	toToday.TrimmedTo = today
+	toToday.WindowEnd = time.Date(2027, 3, 2, 0, 0, 0, 0, time.UTC) // midnight at the end of 1 March in London (GMT)
+	var limit int
+	for {
+		toToday.Description = whole.Description + "\n\nShortened to stay under " + FormatLimit(limit) + ": this calendar reaches to 2027-03-01."
+		b, err := ical.NewEncoder(ical.Options{}).Append(nil, &toToday)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(b) == limit {
+			break
+		}
+		limit = len(b) // once more with this limit written in the note
+	}
+	if limit >= len(data) {
+		t.Fatalf("the feed shortened to today (%d bytes) is not smaller than the whole (%d)", limit, len(data))
+	}
+
+	cal, trimmed, err := encodeFeed(t, cfg, f, &RenderOptions{MaxFeedBytes: limit, Oversize: OversizeTrim})
+	if err != nil || !cal.TrimmedTo.Equal(today) || len(trimmed) != limit || len(cal.Entries) != n {
+		t.Errorf("a limit of %d bytes: trimmed to %s, %d bytes, %d entries, %v; want %s, %d entries", limit, cal.TrimmedTo.Format(time.DateOnly), len(trimmed), len(cal.Entries), err, today.Format(time.DateOnly), n)
+	}
+
+	cal, trimmed, err = encodeFeed(t, cfg, f, &RenderOptions{MaxFeedBytes: limit - 1, Oversize: OversizeTrim})
+	var oe *OversizeError
+	if !errors.As(err, &oe) || !oe.Trimmed || oe.Feed != "plot-sun" || oe.Bytes != len(data) || oe.Limit != limit-1 ||
+		!oe.TrimmedTo.Before(today) || !oe.Today.Equal(today) || len(trimmed) != 0 {
+		t.Fatalf("a limit of %d bytes: %d bytes, %v; want an *OversizeError before %s", limit-1, len(trimmed), err, today.Format(time.DateOnly))
+	}
+	// the calendar is left whole, as the refusal gives its size
+	if len(cal.Entries) != len(whole.Entries) || cal.Description != whole.Description || !cal.WindowEnd.Equal(whole.WindowEnd) || !cal.TrimmedTo.IsZero() {
+		t.Errorf("refused: %d entries, window end %s, trimmed to %s, description %q; want the whole calendar's %d entries",
+			len(cal.Entries), cal.WindowEnd, cal.TrimmedTo, cal.Description, len(whole.Entries))
+	}
+	to := oe.TrimmedTo.Format(time.DateOnly)
+	for _, msg := range []string{err.Error(), OversizeRefusal(oe)} {
+		if !strings.Contains(msg, "trim would shorten it to "+to+", before today at its site (2027-03-01)") || !strings.Contains(msg, "lower days_back or raise service.max_feed_bytes") ||
+			strings.Contains(msg, "no entry left") || strings.Contains(msg, "set service.oversize") {
+			t.Errorf("refused: %q", msg)
+		}
+	}
+	if msg := OversizeRefusal(oe); !strings.HasPrefix(msg, `feed "plot-sun" is `) || !strings.Contains(msg, "publish and serve refuse it") {
+		t.Errorf("refused: %q", msg)
+	}
+
+	// a calendar built over dates given outright has no today: trim
+	// shortens it as far as it must
+	cal, _, err = encodeFeed(t, cfg, f, &RenderOptions{MaxFeedBytes: 400000})
+	if err != nil {
+		t.Fatal(err)
+	}
+	cal.Today = time.Time{}
+	if _, err := Encode(cal, &RenderOptions{MaxFeedBytes: limit - 1, Oversize: OversizeTrim}); err != nil || !cal.TrimmedTo.Before(today) {
+		t.Errorf("no today: trimmed to %s, %v", cal.TrimmedTo.Format(time.DateOnly), err)
 	}
 }
 

@@ -79,3 +79,34 @@ func TestTableLampNoteAsFed(t *testing.T) {
 		t.Errorf("the table's note is not the preview's %q:\n%s", note, page)
 	}
 }
+
+// tableShare is the "Share this page" link of the /at page.
+var tableShare = regexp.MustCompile(`Share this page: <a href="([^"]+)"`)
+
+// The /at page's "Share this page" link opens the same page: a table of 30
+// days shares a link to 30 days (docs/serving.md: `days` up to 62, default
+// 7), and the default table's link carries no days.
+func TestTableSharesItsDays(t *testing.T) {
+	ts := builderServer(t)
+	q := "lat=48.2&lon=16.4&tz=Europe/Vienna&kinds=sunrise,sunset&start=2027-03-01"
+	for _, tc := range []struct {
+		query, want string
+	}{
+		{q + "&days=30", "&days=30"},
+		{q, ""},
+	} {
+		page := getOK(t, ts.URL+"/at?"+tc.query)
+		m := tableShare.FindStringSubmatch(page)
+		if m == nil {
+			t.Fatalf("%s: no share link:\n%.500s", tc.query, page)
+		}
+		link := html.UnescapeString(m[1])
+		if got := regexp.MustCompile(`&days=\d+`).FindString(link); got != tc.want {
+			t.Errorf("%s: shares %s, want days %q", tc.query, link, tc.want)
+		}
+		shared := getOK(t, link)
+		if strings.Count(shared, "<tr") != strings.Count(page, "<tr") {
+			t.Errorf("%s: the shared page has %d rows, the page %d", tc.query, strings.Count(shared, "<tr"), strings.Count(page, "<tr"))
+		}
+	}
+}

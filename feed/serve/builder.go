@@ -728,6 +728,10 @@ func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	https, page := s.links(r, q, start, subDays)
+	if q.Days != previewDays {
+		// the page shared is the page shown: its number of days too
+		page += "&" + ParamDays + "=" + strconv.Itoa(q.Days)
+	}
 	// the heading names a place without a name by its coordinates: the
 	// line under it does not say them again
 	place := feed.Coords(q.Latitude, q.Longitude, 4) + fmt.Sprintf(", %g m", q.Elevation)

@@ -423,8 +423,9 @@ func (y *yearLamps) until(kind string, date, last time.Time) (until time.Time, o
 
 // links are the subscribe links of q (a rolling window from the day of
 // each request: no start; days only when fewer than the default) and its
-// shareable table page.
-func (s *Server) links(r *http.Request, q AdhocQuery, start string, days int) (https, page string) {
+// shareable table page of pageDays days (days only when not previewDays:
+// the page shared is the page shown).
+func (s *Server) links(r *http.Request, q AdhocQuery, start string, days, pageDays int) (https, page string) {
 	base := s.baseFor(r)
 	https = base + strings.TrimPrefix(AdhocPath, "/") + "?" + q.place()
 	if days > 0 && days < s.opts.AdhocDefaultDays {
@@ -433,6 +434,9 @@ func (s *Server) links(r *http.Request, q AdhocQuery, start string, days int) (h
 	page = base + strings.TrimPrefix(TablePath, "/") + "?" + q.place()
 	if start != "" {
 		page += "&" + ParamStart + "=" + start
+	}
+	if pageDays != previewDays {
+		page += "&" + ParamDays + "=" + strconv.Itoa(pageDays)
 	}
 	return https, page
 }
@@ -446,7 +450,7 @@ func (s *Server) servePreview(w http.ResponseWriter, r *http.Request) {
 	if !ok {
 		return
 	}
-	https, page := s.links(r, q, start, subDays)
+	https, page := s.links(r, q, start, subDays, previewDays)
 	res := previewResult{SubscribeDays: subDays, Zone: q.Location.String(), ZoneFound: q.ZoneFound, Name: cal.Site.Name, Title: cal.Title,
 		HTTPS: https, Webcal: webcal(https), Page: page, QR: qrDataURL(page), Days: days(cal, q)}
 	body, err := json.Marshal(res)
@@ -727,11 +731,7 @@ func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
 	if !ok {
 		return
 	}
-	https, page := s.links(r, q, start, subDays)
-	if q.Days != previewDays {
-		// the page shared is the page shown: its number of days too
-		page += "&" + ParamDays + "=" + strconv.Itoa(q.Days)
-	}
+	https, page := s.links(r, q, start, subDays, q.Days)
 	// the heading names a place without a name by its coordinates: the
 	// line under it does not say them again
 	place := feed.Coords(q.Latitude, q.Longitude, 4) + fmt.Sprintf(", %g m", q.Elevation)

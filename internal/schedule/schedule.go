@@ -150,7 +150,7 @@ func nextOnClocks(s cron.Schedule, loc *time.Location, t time.Time) time.Time {
 	lt := t.In(loc)
 	// The clock time written in UTC, whose days are all 24 h long: the
 	// schedule's times are found among them, then put on loc's clocks.
-	wall := time.Date(lt.Year(), lt.Month(), lt.Day(), lt.Hour(), lt.Minute(), lt.Second(), lt.Nanosecond(), time.UTC)
+	wall := clockInUTC(lt)
 	// A time the clocks skipped in the last day runs moved by their jump,
 	// perhaps after t (04:15 from 04:05 in Helsinki on the night of the
 	// jump): the search starts the jump earlier on the clocks.
@@ -179,10 +179,7 @@ func nextOnClocks(s cron.Schedule, loc *time.Location, t time.Time) time.Time {
 func onClocks(wall time.Time, loc *time.Location) time.Time {
 	_, before := wall.Add(-24 * time.Hour).In(loc).Zone()
 	_, after := wall.Add(24 * time.Hour).In(loc).Zone()
-	shows := func(at time.Time) bool {
-		c := at.In(loc)
-		return time.Date(c.Year(), c.Month(), c.Day(), c.Hour(), c.Minute(), c.Second(), c.Nanosecond(), time.UTC).Equal(wall)
-	}
+	shows := func(at time.Time) bool { return clockInUTC(at.In(loc)).Equal(wall) }
 	first := wall.Add(-time.Duration(before) * time.Second)
 	if second := wall.Add(-time.Duration(after) * time.Second); !shows(first) && shows(second) {
 		first = second
@@ -190,6 +187,11 @@ func onClocks(wall time.Time, loc *time.Location) time.Time {
 		first = second
 	}
 	return first.In(loc)
+}
+
+// clockInUTC is the clock time t shows, written in UTC.
+func clockInUTC(t time.Time) time.Time {
+	return time.Date(t.Year(), t.Month(), t.Day(), t.Hour(), t.Minute(), t.Second(), t.Nanosecond(), time.UTC)
 }
 
 // Reschedule replaces the expression and its zone (nil means time.Local)

@@ -181,9 +181,7 @@ func onClocks(wall time.Time, loc *time.Location) time.Time {
 	_, after := wall.Add(24 * time.Hour).In(loc).Zone()
 	shows := func(at time.Time) bool { return clockInUTC(at.In(loc)).Equal(wall) }
 	first := wall.Add(-time.Duration(before) * time.Second)
-	if second := wall.Add(-time.Duration(after) * time.Second); !shows(first) && shows(second) {
-		first = second
-	} else if shows(second) && second.Before(first) {
+	if second := wall.Add(-time.Duration(after) * time.Second); shows(second) && (!shows(first) || second.Before(first)) {
 		first = second
 	}
 	return first.In(loc)

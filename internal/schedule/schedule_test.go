@@ -399,6 +399,7 @@ func TestNextOnClocks(t *testing.T) {
 	}
 	helsinki, newYork, santiago := zone("Europe/Helsinki"), zone("America/New_York"), zone("America/Santiago")
 	lordHowe := zone("Australia/Lord_Howe")
+	utc := func(y int, mo time.Month, d, h, mi int) time.Time { return time.Date(y, mo, d, h, mi, 0, 0, time.UTC) }
 	for _, tc := range []struct {
 		spec string
 		loc  *time.Location
@@ -407,34 +408,26 @@ func TestNextOnClocks(t *testing.T) {
 	}{
 		// 03:15 does not exist on 28 March 2027 in Helsinki (03:00 EET is
 		// 04:00 EEST): 04:15 EEST, 01:15 UTC.
-		{"15 3 * * *", helsinki, time.Date(2027, 3, 27, 12, 0, 0, 0, time.UTC), []time.Time{
-			time.Date(2027, 3, 28, 1, 15, 0, 0, time.UTC), time.Date(2027, 3, 29, 0, 15, 0, 0, time.UTC)}},
+		{"15 3 * * *", helsinki, utc(2027, 3, 27, 12, 0), []time.Time{utc(2027, 3, 28, 1, 15), utc(2027, 3, 29, 0, 15)}},
 		// 03:15 comes twice on 31 October 2027 (04:00 EEST is 03:00 EET):
 		// once, at the first (00:15 UTC).
-		{"15 3 * * *", helsinki, time.Date(2027, 10, 30, 12, 0, 0, 0, time.UTC), []time.Time{
-			time.Date(2027, 10, 31, 0, 15, 0, 0, time.UTC), time.Date(2027, 11, 1, 1, 15, 0, 0, time.UTC)}},
+		{"15 3 * * *", helsinki, utc(2027, 10, 30, 12, 0), []time.Time{utc(2027, 10, 31, 0, 15), utc(2027, 11, 1, 1, 15)}},
 		// 01:30 comes twice on 7 November 2027 in New York: once, in EDT.
-		{"30 1 * * *", newYork, time.Date(2027, 11, 6, 12, 0, 0, 0, time.UTC), []time.Time{
-			time.Date(2027, 11, 7, 5, 30, 0, 0, time.UTC), time.Date(2027, 11, 8, 6, 30, 0, 0, time.UTC)}},
+		{"30 1 * * *", newYork, utc(2027, 11, 6, 12, 0), []time.Time{utc(2027, 11, 7, 5, 30), utc(2027, 11, 8, 6, 30)}},
 		// Midnight does not exist on 5 September 2027 in Santiago: 01:00 −03.
-		{"0 0 * * *", santiago, time.Date(2027, 9, 4, 12, 0, 0, 0, time.UTC), []time.Time{
-			time.Date(2027, 9, 5, 4, 0, 0, 0, time.UTC), time.Date(2027, 9, 6, 3, 0, 0, 0, time.UTC)}},
+		{"0 0 * * *", santiago, utc(2027, 9, 4, 12, 0), []time.Time{utc(2027, 9, 5, 4, 0), utc(2027, 9, 6, 3, 0)}},
 		// From 04:05 EEST on 28 March 2027 in Helsinki (01:05 UTC), after
 		// the jump and before the 03:15 it moved: 04:15 EEST that night.
-		{"15 3 * * *", helsinki, time.Date(2027, 3, 28, 1, 5, 0, 0, time.UTC), []time.Time{
-			time.Date(2027, 3, 28, 1, 15, 0, 0, time.UTC), time.Date(2027, 3, 29, 0, 15, 0, 0, time.UTC)}},
+		{"15 3 * * *", helsinki, utc(2027, 3, 28, 1, 5), []time.Time{utc(2027, 3, 28, 1, 15), utc(2027, 3, 29, 0, 15)}},
 		// Lord Howe Island's clocks go from 02:00 to 02:30 on 3 October 2027
 		// (tz database, rule LH: "Oct Sun>=1 2:00 0:30"; 15:30 UTC): 02:15
 		// runs at 02:45 +11 (15:45 UTC), from 02:35 +11 too.
-		{"15 2 * * *", lordHowe, time.Date(2027, 10, 2, 12, 0, 0, 0, time.UTC), []time.Time{
-			time.Date(2027, 10, 2, 15, 45, 0, 0, time.UTC), time.Date(2027, 10, 3, 15, 15, 0, 0, time.UTC)}},
-		{"15 2 * * *", lordHowe, time.Date(2027, 10, 2, 15, 35, 0, 0, time.UTC), []time.Time{
-			time.Date(2027, 10, 2, 15, 45, 0, 0, time.UTC)}},
+		{"15 2 * * *", lordHowe, utc(2027, 10, 2, 12, 0), []time.Time{utc(2027, 10, 2, 15, 45), utc(2027, 10, 3, 15, 15)}},
+		{"15 2 * * *", lordHowe, utc(2027, 10, 2, 15, 35), []time.Time{utc(2027, 10, 2, 15, 45)}},
 		// From 01:10 EST on 7 November 2027 in New York (06:10 UTC), the
 		// second showing of 01:00–02:00: every 5 minutes ran at the first
 		// (EDT), the next run is 02:00 EST (07:00 UTC).
-		{"*/5 * * * *", newYork, time.Date(2027, 11, 7, 6, 10, 0, 0, time.UTC), []time.Time{
-			time.Date(2027, 11, 7, 7, 0, 0, 0, time.UTC), time.Date(2027, 11, 7, 7, 5, 0, 0, time.UTC)}},
+		{"*/5 * * * *", newYork, utc(2027, 11, 7, 6, 10), []time.Time{utc(2027, 11, 7, 7, 0), utc(2027, 11, 7, 7, 5)}},
 	} {
 		s, err := parser.Parse(tc.spec)
 		if err != nil {

@@ -500,9 +500,13 @@ func TestNginx(t *testing.T) {
 	// A header heliocal sends (its Cache-Control on /healthz, feeds and
 	// ad-hoc feeds) that a location adds too would reach the client twice:
 	// a location that adds one hides heliocal's.
+	addHeader := regexp.MustCompile(`(?m)^\s*add_header\s+(\S+)`)
 	for _, loc := range regexp.MustCompile(`(?s)location ([^{]*)\{(.*?)\}`).FindAllSubmatch(proxy, -1) {
-		for _, add := range regexp.MustCompile(`(?m)^\s*add_header\s+(\S+)`).FindAllSubmatch(loc[2], -1) {
-			if bytes.Contains(loc[2], []byte("proxy_pass ")) && !bytes.Contains(loc[2], []byte("proxy_hide_header "+string(add[1])+";")) {
+		if !bytes.Contains(loc[2], []byte("proxy_pass ")) {
+			continue // nginx's own answer: no header of heliocal's
+		}
+		for _, add := range addHeader.FindAllSubmatch(loc[2], -1) {
+			if !bytes.Contains(loc[2], []byte("proxy_hide_header "+string(add[1])+";")) {
 				t.Errorf("heliocal-serve.conf: location %s: add_header %s without proxy_hide_header %[2]s: the header is sent twice", bytes.TrimSpace(loc[1]), add[1])
 			}
 		}

@@ -845,7 +845,7 @@ func limbMeaning(s *config.Site, kind, body string, rising bool) string {
 // horizonHeight says how high a site's horizon altitude h is: "2° high",
 // "1.5° high", "0.8° below eye level" (a sea horizon seen from a height).
 func horizonHeight(h float64) string {
-	d := strconv.FormatFloat(math.Abs(h), 'f', -1, 64) + "°"
+	d := AltitudeText(math.Abs(h))
 	if h < 0 {
 		return d + " below eye level"
 	}

@@ -1,6 +1,7 @@
 package publish
 
 import (
+	"html"
 	"html/template"
 	"strings"
 )
@@ -17,24 +18,16 @@ import (
 func URLBreaks(u string) template.HTML {
 	var b strings.Builder
 	b.Grow(len(u) + len(u)/4)
+	from := 0 // u[from:] is not written yet
+	wbr := func(at int) {
+		b.WriteString(html.EscapeString(u[from:at]))
+		b.WriteString("<wbr/>")
+		from = at
+	}
 	for i := 0; i < len(u); i++ {
 		c := u[i]
 		if (c == '?' || c == '&') && i > 0 {
-			b.WriteString("<wbr/>")
-		}
-		switch c {
-		case '&':
-			b.WriteString("&amp;")
-		case '<':
-			b.WriteString("&lt;")
-		case '>':
-			b.WriteString("&gt;")
-		case '"':
-			b.WriteString("&#34;")
-		case '\'':
-			b.WriteString("&#39;")
-		default:
-			b.WriteByte(c)
+			wbr(i)
 		}
 		if i+1 == len(u) {
 			break
@@ -45,8 +38,9 @@ func URLBreaks(u string) template.HTML {
 		case c == '/' && next != '/',
 			(c == '.' || c == '-') && !digit,
 			c == ',':
-			b.WriteString("<wbr/>")
+			wbr(i + 1)
 		}
 	}
+	b.WriteString(html.EscapeString(u[from:]))
 	return template.HTML(b.String())
 }

@@ -92,16 +92,14 @@ func (r *publishRun) stage(ctx context.Context) error {
 		if limit := r.st.MaxFeedBytes; limit > 0 && rd.info.Bytes > limit {
 			r.st.Oversize = append(r.st.Oversize, rd.info)
 		}
-		if !rd.trimmedTo.IsZero() {
-			r.st.Trimmed = append(r.st.Trimmed, Trimmed{Feed: rd.info, To: rd.trimmedTo})
-		}
-		r.list.add(rd)
+		r.list.add(rd) // with the feed shortened, if it was (r.list.trimmed)
 		r.stamps = append(r.stamps, rd.stamp)
 		if p := r.opts.Progress; p != nil {
 			p.Feed(rd.info, sf.tmp != "")
 		}
 		return nil
 	})
+	r.st.Trimmed = r.list.trimmed
 	if err != nil {
 		return err
 	}

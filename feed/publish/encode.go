@@ -97,7 +97,9 @@ func (e *OversizeError) Error() string {
 // c's encoding before trimming; each new encoding replaces it. A feed that
 // fits only shortened to a date before c.Today (when set) is refused
 // whole: c is left as it came and the error is an *OversizeError with
-// TrimmedTo; so is one with no entry left, with Trimmed.
+// TrimmedTo. One still over the limit with no entry left is refused with
+// Trimmed alone, c left as trimmed: no entries, its note in the
+// description.
 func trimToFit(c *feed.Calendar, buf []byte, n, limit int, enc encodeFunc) ([]byte, error) {
 	data := buf[n:]
 	whole, entries0, desc, windowEnd := len(data), len(c.Entries), c.Description, c.WindowEnd

@@ -347,11 +347,7 @@ func heldText(held []HeldDates, first, last time.Time) string {
 		if len(h.What) == 0 {
 			continue
 		}
-		what := strings.Join(h.What[:len(h.What)-1], ", ")
-		if what != "" {
-			what += " and "
-		}
-		what += h.What[len(h.What)-1]
+		what := feed.AndList(h.What)
 		from, to := chartDate(h.First, first, last), chartDate(h.Last, first, last)
 		b.WriteString(" ")
 		b.WriteString(strings.ToUpper(what[:1]) + what[1:])

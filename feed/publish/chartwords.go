@@ -74,13 +74,7 @@ func seasons(dates []time.Time, first, last time.Time) string {
 		}
 		start = i
 	}
-	switch len(parts) {
-	case 0:
-		return ""
-	case 1:
-		return parts[0]
-	}
-	return strings.Join(parts[:len(parts)-1], ", ") + " and " + parts[len(parts)-1]
+	return feed.AndList(parts)
 }
 
 // spanWords says in words when lamp periods (lamps) or dark windows (not

@@ -97,19 +97,42 @@ func readmeJSON(t *testing.T, keep func(line string) bool) []map[string]any {
 	return out
 }
 
+// readmeObject is the JSON object the README shows where the first group
+// of the regular expression re matches; what names it if it is not there.
+func readmeObject(t *testing.T, re, what string) map[string]any {
+	t.Helper()
+	m := regexp.MustCompile(re).FindSubmatch(readmeBytes(t))
+	if m == nil {
+		t.Fatalf("README: %s is not where this test looks for it", what)
+	}
+	var obj map[string]any
+	if err := json.Unmarshal(m[1], &obj); err != nil {
+		t.Fatal(err)
+	}
+	return obj
+}
+
 // printedEvents runs `heliocal events` with args and --format json and
 // returns the events it prints.
 func printedEvents(t *testing.T, args ...string) []map[string]any {
+	t.Helper()
+	events, _ := printed(t, args...)
+	return events
+}
+
+// printed runs `heliocal events` with args and --format json and returns
+// the events and the notes it prints.
+func printed(t *testing.T, args ...string) (events, notes []map[string]any) {
 	t.Helper()
 	code, out, errOut := runCLI(t, append(append([]string{"events"}, args...), "--format", "json")...)
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, errOut)
 	}
-	var got struct{ Events []map[string]any }
+	var got struct{ Events, Notes []map[string]any }
 	if err := json.Unmarshal([]byte(out), &got); err != nil {
 		t.Fatal(err)
 	}
-	return got.Events
+	return got.Events, got.Notes
 }
 
 // samePrinted checks that an object the README shows is the one printed:
@@ -375,30 +398,15 @@ func TestReadmeKindsTable(t *testing.T) {
 // day is about 90° − 69.65° − 23.44° = −3.1°: it does not rise (common
 // practice: noon altitude 90° − latitude + declination).
 func TestReadmePolarNightNote(t *testing.T) {
-	readme := readmeBytes(t)
-	m := regexp.MustCompile("At 69\\.65° N on 21 December `--kinds sunrise` lists no\\s+event and `notes` says `(\\{[^`]*\\})`").FindSubmatch(readme)
-	if m == nil {
-		t.Fatal("README: the polar-night note is not where this test looks for it")
+	want := readmeObject(t, "At 69\\.65° N on 21 December `--kinds sunrise` lists no\\s+event and `notes` says `(\\{[^`]*\\})`", "the polar-night note")
+	events, notes := printed(t, "--lat", "69.65", "--lon", "18.96", "--tz", "Europe/Oslo",
+		"--from", "2027-12-21", "--to", "2027-12-21", "--kinds", "sunrise")
+	if len(events) != 0 || len(notes) != 1 {
+		t.Fatalf("printed %d events and %d notes, want none and one: events %v, notes %v", len(events), len(notes), events, notes)
 	}
-	var want map[string]any
-	if err := json.Unmarshal(m[1], &want); err != nil {
-		t.Fatal(err)
-	}
-	code, out, errOut := runCLI(t, "events", "--lat", "69.65", "--lon", "18.96", "--tz", "Europe/Oslo",
-		"--from", "2027-12-21", "--to", "2027-12-21", "--kinds", "sunrise", "--format", "json")
-	if code != 0 {
-		t.Fatalf("exit %d: %s", code, errOut)
-	}
-	var got struct{ Events, Notes []map[string]any }
-	if err := json.Unmarshal([]byte(out), &got); err != nil {
-		t.Fatal(err)
-	}
-	if len(got.Events) != 0 || len(got.Notes) != 1 {
-		t.Fatalf("printed %d events and %d notes, want none and one: %s", len(got.Events), len(got.Notes), out)
-	}
-	samePrinted(t, "note", want, got.Notes[0])
-	if len(got.Notes[0]) != len(want) {
-		t.Errorf("note %v has fields the README does not show: %v", got.Notes[0], want)
+	samePrinted(t, "note", want, notes[0])
+	if len(notes[0]) != len(want) {
+		t.Errorf("note %v has fields the README does not show: %v", notes[0], want)
 	}
 }
 
@@ -408,25 +416,11 @@ func TestReadmePolarNightNote(t *testing.T) {
 // day is 16 h or more there from about 11 June to 1 July is checked against
 // an outside source in TestLightingNoLampsNote.)
 func TestReadmeLightingNote(t *testing.T) {
-	m := regexp.MustCompile("`lamp_s`, and its notes say `(\\{\"kind\":\"lighting:16h\"[^`]*\\})`").FindSubmatch(readmeBytes(t))
-	if m == nil {
-		t.Fatal("README: the lighting note is not where this test looks for it")
-	}
-	var want map[string]any
-	if err := json.Unmarshal(m[1], &want); err != nil {
-		t.Fatal(err)
-	}
-	code, out, errOut := runCLI(t, "events", "--lat", "48.2", "--lon", "16.4", "--tz", "Europe/Vienna",
-		"--from", "2027-01-01", "--to", "2027-12-31", "--kinds", "lighting:16h", "--format", "json")
-	if code != 0 {
-		t.Fatalf("exit %d: %s", code, errOut)
-	}
-	var got struct{ Notes []map[string]any }
-	if err := json.Unmarshal([]byte(out), &got); err != nil {
-		t.Fatal(err)
-	}
+	want := readmeObject(t, "`lamp_s`, and its notes say `(\\{\"kind\":\"lighting:16h\"[^`]*\\})`", "the lighting note")
+	_, notes := printed(t, "--lat", "48.2", "--lon", "16.4", "--tz", "Europe/Vienna",
+		"--from", "2027-01-01", "--to", "2027-12-31", "--kinds", "lighting:16h")
 	var found []map[string]any
-	for _, n := range got.Notes {
+	for _, n := range notes {
 		if n["state"] == want["state"] {
 			found = append(found, n)
 		}

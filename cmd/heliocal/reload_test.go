@@ -41,14 +41,7 @@ func TestServeReloadAppliesBaseURLAndSchedule(t *testing.T) {
 		}
 	}
 	write("  base_url: https://a.example.org/cal/\n  refresh: \"15 3 * * *\"\n  refresh_zone: UTC\n")
-	addr := freePort(t)
-	ctx, cancel := context.WithCancel(context.Background())
-	defer cancel()
-	logs := &lockedBuffer{}
-	done := make(chan int, 1)
-	go func() {
-		done <- run(ctx, []string{"serve", "--config", path, "--listen", addr, "--access-log=false"}, io.Discard, logs, noEnv)
-	}()
+	addr, logs, stop := serveInBackground(t, "--config", path, "--access-log=false")
 	base := "http://" + addr
 	fetch := func(p string) (int, http.Header, string) {
 		resp, err := http.Get(base + p)
@@ -99,8 +92,7 @@ func TestServeReloadAppliesBaseURLAndSchedule(t *testing.T) {
 	if until := time.Until(hz.NextRefresh); until <= 0 || until > 2*time.Hour {
 		t.Errorf("next refresh %v (in %v), want within the new 2 h schedule", hz.NextRefresh, until)
 	}
-	cancel()
-	if code := <-done; code != 0 {
+	if code := stop(); code != 0 {
 		t.Errorf("serve exited %d:\n%s", code, logs.String())
 	}
 }
@@ -198,11 +190,7 @@ func TestServeRefusesOversizeFeed(t *testing.T) {
 	if err := os.WriteFile(path, []byte(reloadSite), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	addr := freePort(t)
-	logs = &lockedBuffer{}
-	go func() {
-		done <- run(ctx, []string{"serve", "--config", path, "--listen", addr, "--access-log=false"}, io.Discard, logs, noEnv)
-	}()
+	addr, logs, stop := serveInBackground(t, "--config", path, "--access-log=false")
 	health := func() (int, string) {
 		resp, err := http.Get("http://" + addr + "/healthz")
 		if err != nil {
@@ -233,8 +221,7 @@ func TestServeRefusesOversizeFeed(t *testing.T) {
 	} else {
 		resp.Body.Close()
 	}
-	cancel()
-	if code := <-done; code != 0 {
+	if code := stop(); code != 0 {
 		t.Errorf("serve exited %d:\n%s", code, logs.String())
 	}
 }

@@ -44,6 +44,22 @@ func freePort(t *testing.T) string {
 	return addr
 }
 
+// serveInBackground runs heliocal serve with args on a free loopback
+// address until the test ends or stop is called: its address, its log, and
+// stop, which shuts it down and returns its exit code.
+func serveInBackground(t *testing.T, args ...string) (addr string, logs *lockedBuffer, stop func() int) {
+	t.Helper()
+	addr = freePort(t)
+	ctx, cancel := context.WithCancel(context.Background())
+	t.Cleanup(cancel)
+	logs = &lockedBuffer{}
+	done := make(chan int, 1)
+	go func() {
+		done <- run(ctx, append([]string{"serve", "--listen", addr}, args...), io.Discard, logs, noEnv)
+	}()
+	return addr, logs, func() int { cancel(); return <-done }
+}
+
 // heliocal serve on the built-in demo: the wiring of the command (build,
 // ad-hoc feeds, schedule, shutdown) end to end over real HTTP on loopback.
 func TestServeDemo(t *testing.T) {
@@ -184,14 +200,7 @@ func TestServeReloadRefusesInvalidConfig(t *testing.T) {
 	if err := os.WriteFile(path, config.DemoYAML(), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	addr := freePort(t)
-	ctx, cancel := context.WithCancel(context.Background())
-	defer cancel()
-	logs := &lockedBuffer{}
-	done := make(chan int, 1)
-	go func() {
-		done <- run(ctx, []string{"serve", "--config", path, "--listen", addr, "--access-log=false"}, io.Discard, logs, noEnv)
-	}()
+	addr, logs, stop := serveInBackground(t, "--config", path, "--access-log=false")
 	base := "http://" + addr
 	fetch := func(p string) (int, string) {
 		resp, err := http.Get(base + p)
@@ -227,8 +236,7 @@ func TestServeReloadRefusesInvalidConfig(t *testing.T) {
 	if _, metrics := fetch("/metrics"); !strings.Contains(metrics, "heliocal_reloads_refused_total 1\n") {
 		t.Error("/metrics does not count the refused reload")
 	}
-	cancel()
-	if code := <-done; code != 0 {
+	if code := stop(); code != 0 {
 		t.Errorf("serve exited %d:\n%s", code, logs.String())
 	}
 }
@@ -242,14 +250,7 @@ func TestServeLogFormats(t *testing.T) {
 	path := writeConfig(t, reloadSite)
 	for _, format := range []string{"json", "text"} {
 		t.Run(format, func(t *testing.T) {
-			addr := freePort(t)
-			ctx, cancel := context.WithCancel(context.Background())
-			defer cancel()
-			logs := &lockedBuffer{}
-			done := make(chan int, 1)
-			go func() {
-				done <- run(ctx, []string{"serve", "--config", path, "--listen", addr, "--log-format", format}, io.Discard, logs, noEnv)
-			}()
+			addr, logs, stop := serveInBackground(t, "--config", path, "--log-format", format)
 			status := func(p string) int {
 				resp, err := http.Get("http://" + addr + p)
 				if err != nil {
@@ -262,8 +263,7 @@ func TestServeLogFormats(t *testing.T) {
 			if code := status("/north-sun.ics"); code != http.StatusOK {
 				t.Fatalf("north-sun.ics: %d", code)
 			}
-			cancel()
-			if code := <-done; code != 0 {
+			if code := stop(); code != 0 {
 				t.Fatalf("serve exited %d:\n%s", code, logs.String())
 			}
 			var request, shutdown string

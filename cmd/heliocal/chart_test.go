@@ -18,15 +18,12 @@ import (
 // DC, drawn for 1 January 2024: sunrise on the local clock, the new and full
 // Moons, the 12 h photoperiod crossings, lamp periods and today's date.
 func TestChartClockPhasesAndThresholds(t *testing.T) {
-	cfg, err := config.Parse(strings.NewReader(`
+	cfg := parseYAML(t, `
 sites:
   - {id: mall, latitude: 38.889444, longitude: -77.035278, elevation: 0, timezone: America/New_York}
 feeds:
   - {id: mall-sun, site: mall, kinds: [sunrise, sunset, "photoperiod:12h", "lighting:14h", moon-phases]}
-`), "yaml")
-	if err != nil {
-		t.Fatal(err)
-	}
+`)
 	now := time.Date(2024, 1, 1, 15, 0, 0, 0, time.UTC)
 	c, err := chartsFor(cfg, now, nil)(context.Background(), feed.SiteOf(&cfg.Sites[0]), nil)
 	if err != nil {
@@ -119,15 +116,12 @@ feeds:
 // march-equinox-2024 … december-solstice-2024, within the chart's minute),
 // beside the lamp periods, dark windows and the Moon's phases.
 func TestChartSharesFeedsSky(t *testing.T) {
-	cfg, err := config.Parse(strings.NewReader(`
+	cfg := parseYAML(t, `
 sites:
   - {id: mall, latitude: 38.889444, longitude: -77.035278, elevation: 0, timezone: America/New_York}
 feeds:
   - {id: mall-sun, site: mall, days_back: 40, days_ahead: 400, kinds: [sunrise, sunset, "lighting:14h", moon-phases, seasons, dark-window]}
-`), "yaml")
-	if err != nil {
-		t.Fatal(err)
-	}
+`)
 	now := time.Date(2024, 1, 1, 15, 0, 0, 0, time.UTC)
 	cat, err := feed.NewCatalogue(cfg, feed.Options{Now: now})
 	if err != nil {
@@ -191,15 +185,12 @@ func TestChartLampsFollowTheirOptions(t *testing.T) {
 		{"evening", "lamps: evening", 18*time.Hour + 6*time.Minute, 20*time.Hour + 34*time.Minute},
 		{"cut", `lamps: evening, latest_off: "19:30"`, 18*time.Hour + 6*time.Minute, 19*time.Hour + 30*time.Minute},
 	} {
-		cfg, err := config.Parse(strings.NewReader(`
+		cfg := parseYAML(t, `
 sites:
   - {id: mall, latitude: 38.889444, longitude: -77.035278, elevation: 0, timezone: America/New_York}
 feeds:
   - {id: mall-lamps, site: mall, kinds: [{kind: "lighting:14h", `+tc.opts+`}]}
-`), "yaml")
-		if err != nil {
-			t.Fatal(err)
-		}
+`)
 		c, err := chartsFor(cfg, time.Date(2024, 1, 1, 15, 0, 0, 0, time.UTC), nil)(context.Background(), feed.SiteOf(&cfg.Sites[0]), nil)
 		if err != nil {
 			t.Fatal(err)
@@ -238,16 +229,13 @@ func TestChartNoonClearMarks(t *testing.T) {
 // the end of the chart's year (the invented site at the USNO coordinates
 // of Washington, DC; lamps are needed there every evening of the winter).
 func TestChartStopsWhereTrimmedFeedStops(t *testing.T) {
-	cfg, err := config.Parse(strings.NewReader(`
+	cfg := parseYAML(t, `
 service: {max_feed_bytes: 150000, oversize: trim}
 sites:
   - {id: mall, latitude: 38.889444, longitude: -77.035278, elevation: 0, timezone: America/New_York}
 feeds:
   - {id: mall-lamps, site: mall, kinds: ["lighting:14h", seasons, "photoperiod:12h", dark-window]}
-`), "yaml")
-	if err != nil {
-		t.Fatal(err)
-	}
+`)
 	now := time.Date(2024, 1, 1, 15, 0, 0, 0, time.UTC)
 	srcs, opts, err := build(cfg, now, layout{})
 	if err != nil {
@@ -327,17 +315,14 @@ feeds:
 // Washington, DC, where lamps bring every day of the winter and spring up
 // to 14 h and the day length crosses 12 h in March and September.
 func TestChartDrawsFeedWindow(t *testing.T) {
-	cfg, err := config.Parse(strings.NewReader(`
+	cfg := parseYAML(t, `
 sites:
   - {id: mall, latitude: 38.889444, longitude: -77.035278, elevation: 0, timezone: America/New_York}
   - {id: ellipse, latitude: 38.889444, longitude: -77.035278, elevation: 0, timezone: America/New_York}
 feeds:
   - {id: mall-spring, site: mall, days_back: 7, days_ahead: 120, kinds: ["lighting:14h", "photoperiod:12h", dark-window]}
   - {id: ellipse-long, site: ellipse, days_back: 40, days_ahead: 400, kinds: ["lighting:14h", "photoperiod:12h", dark-window]}
-`), "yaml")
-	if err != nil {
-		t.Fatal(err)
-	}
+`)
 	now := time.Date(2024, 1, 1, 15, 0, 0, 0, time.UTC)
 	srcs, opts, err := build(cfg, now, layout{})
 	if err != nil {

@@ -4,7 +4,6 @@ import (
 	"context"
 	"fmt"
 	"slices"
-	"strings"
 	"testing"
 	"time"
 
@@ -62,10 +61,7 @@ func TestChartDrawsWhatFeedsKeep(t *testing.T) {
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			path := writeConfig(t, tc.yaml)
-			cfg, err := config.Parse(strings.NewReader(tc.yaml), "yaml")
-			if err != nil {
-				t.Fatal(err)
-			}
+			cfg := parseYAML(t, tc.yaml)
 			drawn := map[string]int{}
 			for i := range cfg.Sites {
 				site := &cfg.Sites[i]

@@ -12,7 +12,6 @@ import (
 	"testing"
 	"time"
 
-	"heliocal/config"
 	"heliocal/feed"
 )
 
@@ -89,15 +88,12 @@ func TestEventsJSONEclipses(t *testing.T) {
 // partial lunar eclipse of 2026-08-28 (both partial there: Swiss Ephemeris
 // 2.10.03, testdata/reference/eclipses-swiss.csv).
 func TestChartMarksEclipses(t *testing.T) {
-	cfg, err := config.Parse(strings.NewReader(`
+	cfg := parseYAML(t, `
 sites:
   - {id: vienna, latitude: 48.21, longitude: 16.37, elevation: 190, timezone: Europe/Vienna}
 feeds:
   - {id: dim, site: vienna, kinds: [solar-eclipse, lunar-eclipse]}
-`), "yaml")
-	if err != nil {
-		t.Fatal(err)
-	}
+`)
 	chart, err := chartsFor(cfg, time.Date(2026, 8, 1, 12, 0, 0, 0, time.UTC), nil)(context.Background(), feed.SiteOf(&cfg.Sites[0]), nil)
 	if err != nil {
 		t.Fatal(err)

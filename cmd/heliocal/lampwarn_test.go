@@ -16,6 +16,16 @@ import (
 	"heliocal/feed/serve"
 )
 
+// parseYAML is the YAML configuration text cfg, parsed.
+func parseYAML(t *testing.T, cfg string) *config.Config {
+	t.Helper()
+	c, err := config.Parse(strings.NewReader(cfg), "yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	return c
+}
+
 // checkWarnings is what heliocal check warns about the configuration text
 // cfg on the date now.
 func checkWarnings(t *testing.T, cfg string, now time.Time) []string {
@@ -26,10 +36,7 @@ func checkWarnings(t *testing.T, cfg string, now time.Time) []string {
 // checkReportOf is check's report on the YAML configuration cfg at now.
 func checkReportOf(t *testing.T, cfg string, now time.Time) *checkReport {
 	t.Helper()
-	c, err := config.Parse(strings.NewReader(cfg), "yaml")
-	if err != nil {
-		t.Fatal(err)
-	}
+	c := parseYAML(t, cfg)
 	r, _, err := checkConfig(context.Background(), c, config.Source{}, now)
 	if err != nil {
 		t.Fatal(err)
@@ -233,10 +240,7 @@ func TestDemoHasNoLampLimitWarning(t *testing.T) {
 // and what it has logged at WARN so far, in order.
 func serveWarnings(t *testing.T, cfg string) (serve.BuildFunc, func() []string) {
 	t.Helper()
-	c, err := config.Parse(strings.NewReader(cfg), "yaml")
-	if err != nil {
-		t.Fatal(err)
-	}
+	c := parseYAML(t, cfg)
 	logged := &lockedBuffer{}
 	return serveBuild(c, "", slog.New(slog.NewJSONHandler(logged, nil))), func() []string { return warnings(t, logged) }
 }

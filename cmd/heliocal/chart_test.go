@@ -313,7 +313,10 @@ feeds:
 // in a feed whose window is longer than the chart are drawn over the
 // chart's whole year. The invented sites are at the USNO coordinates of
 // Washington, DC, where lamps bring every day of the winter and spring up
-// to 14 h and the day length crosses 12 h in March and September.
+// to 14 h and the day length crosses 12 h in March and September (from
+// memory: the day there is under 14 h through April and 12 h near the
+// equinoxes; the chart's sunrise and sunset there are held to USNO in
+// TestChartClockPhasesAndThresholds).
 func TestChartDrawsFeedWindow(t *testing.T) {
 	cfg := parseYAML(t, `
 sites:

@@ -454,6 +454,16 @@ func newSiteInfo(s *config.Site) *siteInfo {
 	return si
 }
 
+// riseHorizon names the horizon the Sun rises over at s, as a solar noon
+// near it says: "a flat horizon", or "the site's horizon, 2° high" for a
+// horizon altitude (s.rise).
+func (s *siteInfo) riseHorizon() string {
+	if s.rise != s.flatRise {
+		return "the site's horizon, " + horizonHeight(s.Horizon)
+	}
+	return "a flat horizon"
+}
+
 // RefractionText names the refraction rise and set are computed with:
 // "standard refraction", or "refraction for 1030 hPa and −20 °C".
 func RefractionText(o astro.Observer) string {
@@ -934,24 +944,20 @@ func describe(s *siteInfo, e Event) (string, string) {
 		title = "Solar noon, Sun " + height(e.Altitude, "high")
 		// what solar noon is, in the calendar's description (kindMeaning)
 		fmt.Fprintf(&b, "Solar noon at %s, the Sun at %s altitude", at, degrees(e.Altitude))
-		over := "a flat horizon"
-		if s.rise != s.flatRise {
-			over = "the site's horizon, " + horizonHeight(s.Horizon)
-		}
 		switch {
 		case e.Altitude > s.rise && e.Altitude < 0:
 			// the date's sunrise and sunset come before and after: the
 			// refraction (and the dip, or a horizon below eye level) keep
 			// its upper limb in view
 			title = "Solar noon, Sun on the horizon"
-			b.WriteString(", its centre below the horizon, its upper limb in view over " + over + ".\n" + cautionEyes)
+			b.WriteString(", its centre below the horizon, its upper limb in view over " + s.riseHorizon() + ".\n" + cautionEyes)
 		case e.Altitude <= s.rise && e.Altitude > s.flatRise:
 			// up over a flat horizon, but the site's raised horizon hides
 			// it: the date has no sunrise there
 			if e.Altitude < 0 {
 				b.WriteString(", its centre below the horizon")
 			}
-			b.WriteString(", its upper limb behind " + over + ".")
+			b.WriteString(", its upper limb behind " + s.riseHorizon() + ".")
 		case e.Altitude < 0:
 			b.WriteString(", its centre below the horizon.")
 		default:

@@ -470,7 +470,7 @@ func RefractionText(o astro.Observer) string {
 	if o.Pressure == 0 {
 		return "standard refraction"
 	}
-	return fmt.Sprintf("refraction for %.0f hPa and %s °C", o.Pressure, strings.Replace(strconv.FormatFloat(math.Round(o.Temperature*10)/10, 'f', -1, 64), "-", "−", 1))
+	return fmt.Sprintf("refraction for %.0f hPa and %s °C", o.Pressure, numberText(math.Round(o.Temperature*10)/10))
 }
 
 // Conditions names what the times of site s are computed for besides its
@@ -511,8 +511,12 @@ func SkylineText(f SkylineFacts) string {
 
 // AltitudeText writes an altitude with a proper minus sign and no plus:
 // "−0.8°", "3°".
-func AltitudeText(v float64) string {
-	return strings.Replace(strconv.FormatFloat(v, 'f', -1, 64), "-", "−", 1) + "°"
+func AltitudeText(v float64) string { return numberText(v) + "°" }
+
+// numberText writes v with the digits it needs and a proper minus sign:
+// "−20", "1.5".
+func numberText(v float64) string {
+	return strings.Replace(strconv.FormatFloat(v, 'f', -1, 64), "-", "−", 1)
 }
 
 // where names site s in a text with its coordinates: "Fernhollow Mixed Farm

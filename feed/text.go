@@ -831,14 +831,16 @@ func kindMeaning(s *config.Site, kind string) string {
 // refraction for that altitude)." for a horizon altitude (no dip), and
 // "…first appears over the site's skyline (…)" for a skyline.
 func limbMeaning(s *config.Site, kind, body string, rising bool) string {
-	verb, refr := "disappears below the horizon", RefractionText(PlaceOf(s).Observer)
+	var air astro.Observer
+	air.Pressure, air.Temperature = airOf(s)
+	verb, refr := "disappears below the horizon", RefractionText(air)
 	if rising {
 		verb = "appears on the horizon"
 	}
 	// "standard refraction for that altitude", "refraction for 1030 hPa
 	// and −20 °C at that altitude"
 	at := " for "
-	if refr != "standard refraction" {
+	if air.Pressure != 0 {
 		at = " at "
 	}
 	switch {

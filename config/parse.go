@@ -693,7 +693,11 @@ func decodeHook() mapstructure.DecodeHookFunc {
 		if to.Kind() == reflect.Int && (from.Kind() == reflect.Float64 || from.Kind() == reflect.Float32) {
 			f := reflect.ValueOf(data).Float()
 			if f != math.Trunc(f) || math.Abs(f) > 1<<53 {
-				return nil, &valueError{Value: strconv.FormatFloat(f, 'g', -1, 64), Msg: "must be a whole number"}
+				hint := ""
+				if math.Abs(f) < 1e6 {
+					hint = fmt.Sprintf("write %g or %g", math.Floor(f), math.Ceil(f)) // 36 or 37 for 36.5
+				}
+				return nil, &valueError{Value: strconv.FormatFloat(f, 'g', -1, 64), Msg: "must be a whole number", Hint: hint}
 			}
 		}
 		return data, nil
@@ -756,7 +760,7 @@ func problemFor(path string, err error) []FieldError {
 		if what := dateKey(path); what != "" && ue.Expected.Type().Kind() == reflect.String {
 			return []FieldError{{Path: shown, Value: quotedValue(ue.Value), Msg: "must be " + what + ", not " + describeValue(ue.Value), Hint: dateValueHint(ue.Value)}}
 		}
-		return []FieldError{{Path: shown, Value: quotedValue(ue.Value), Msg: "must be " + describeType(ue.Expected.Type()) + ", not " + describeValue(ue.Value), Hint: typeHint(ue.Expected.Type(), ue.Value)}}
+		return []FieldError{{Path: shown, Value: quotedValue(ue.Value), Msg: "must be " + describeType(ue.Expected.Type()) + ", not " + describeValue(ue.Value), Hint: typeHint(path, ue.Expected.Type(), ue.Value)}}
 	case errors.As(err, &pe):
 		return []FieldError{{Path: shown, Value: quotedValue(pe.Value), Msg: "must be " + describeType(pe.Expected.Type())}}
 	}
@@ -921,17 +925,122 @@ func describeValue(v any) string {
 	return fmt.Sprintf("a %T", v)
 }
 
-func typeHint(t reflect.Type, v any) string {
+func typeHint(path string, t reflect.Type, v any) string {
+	key := fieldKey(path)
 	if x, ok := v.(string); ok && (t.Kind() == reflect.Float64 || t.Kind() == reflect.Int) {
-		if _, err := strconv.ParseFloat(strings.TrimSpace(x), 64); err == nil {
+		x = strings.TrimSpace(x)
+		if _, err := strconv.ParseFloat(x, 64); err == nil {
 			return "write the number without quotes" // "47.5" where 47.5 belongs
 		}
-		return "" // words ("lots") where a number belongs: no quotes to take away
+		return numberTextHint(key, x)
+	}
+	if x, ok := v.(string); ok && t.Kind() == reflect.Bool {
+		switch strings.ToLower(strings.TrimSpace(x)) {
+		case "true", "yes", "y", "on":
+			return "write true, without quotes"
+		case "false", "no", "n", "off":
+			return "write false, without quotes"
+		}
+		return "write true or false, without quotes"
 	}
 	if t.Kind() == reflect.String {
 		if _, ok := v.(string); !ok {
+			if h := nameHint(key, v); h != "" {
+				return h
+			}
 			return "put the value in quotes"
 		}
+	}
+	return ""
+}
+
+// fieldKey is the last key of a field path, without its index:
+// "months" for "feeds[0].kinds[1].months[2]".
+func fieldKey(path string) string {
+	key := path[strings.LastIndexByte(path, '.')+1:]
+	if i := strings.IndexByte(key, '['); i >= 0 {
+		key = key[:i]
+	}
+	return key
+}
+
+// numberUnits lists, for the keys that hold a number, the units people
+// write after it ("120 m", "1013 hPa"), which the key's name already says.
+var numberUnits = map[string][]string{
+	"elevation":     {"m", "metre", "metres", "meter", "meters"},
+	"pressure_hpa":  {"hpa", "mbar", "mb"},
+	"temperature_c": {"c", "°c", "°", "degc"},
+	"days_back":     {"d", "day", "days"},
+	"days_ahead":    {"d", "day", "days"},
+	"low":           {"°", "deg", "degrees"},
+	"high":          {"°", "deg", "degrees"},
+}
+
+// numberTextHint says how to write, as a number, text that is not one
+// where key holds a number: the number alone when the text is a number and
+// the key's own unit ("write 120" for elevation "120m"), a fraction for a
+// percentage of max_illumination, decimal degrees for a latitude or
+// longitude in degrees and minutes; "" for words ("lots"), which have no
+// number to keep.
+func numberTextHint(key, x string) string {
+	n := len(x) - len(strings.TrimLeft(x, "+-.0123456789"))
+	num, unit := x[:n], strings.ToLower(strings.TrimSpace(x[n:]))
+	f, err := strconv.ParseFloat(num, 64)
+	switch {
+	case key == "latitude":
+		return "write decimal degrees, south negative, e.g. -42.88 for 42°52′48″S"
+	case key == "longitude":
+		return "write decimal degrees, west negative, e.g. -72.26 for 72°15′36″W"
+	case err != nil:
+		return ""
+	case key == "max_illumination" && unit == "%":
+		return "write a fraction of 1: " + strconv.FormatFloat(f/100, 'g', -1, 64) + " for " + num + " %"
+	}
+	for _, u := range numberUnits[key] {
+		if unit == u {
+			return "write the number alone, without the unit: " + num
+		}
+	}
+	if key == "days_back" || key == "days_ahead" {
+		return "write a number of days, e.g. 365 for a year" // "1y"
+	}
+	return ""
+}
+
+// nameHint says how to write a value that is not text where key holds
+// text: a month's or a weekday's name for a number in months or weekdays,
+// a clock time "HH:MM" for a number where a time of day belongs (`write it
+// "23:00"` for 2300); "" for other keys and values.
+func nameHint(key string, v any) string {
+	var n int64
+	switch x := v.(type) {
+	case int:
+		n = int64(x)
+	case int64:
+		n = x
+	case uint64:
+		n = int64(x)
+	case float64:
+		if x != math.Trunc(x) || math.Abs(x) > 1e6 {
+			return ""
+		}
+		n = int64(x)
+	default:
+		return ""
+	}
+	switch key {
+	case "months":
+		if n >= 1 && n <= 12 {
+			return fmt.Sprintf("write the month's name: %q", monthNames[n-1])
+		}
+		return "write the month's name: jan, feb, mar, apr, may, jun, jul, aug, sep, oct, nov or dec"
+	case "weekdays":
+		return "write the day's name: mon, tue, wed, thu, fri, sat or sun"
+	case "latest_off", "earliest_on", "start", "end":
+		if n >= 0 && n < 2400 && n%100 < 60 {
+			return fmt.Sprintf(`write it "%02d:%02d"`, n/100, n%100)
+		}
+		return `write a local time "HH:MM" in quotes, e.g. "22:00"`
 	}
 	return ""
 }
@@ -940,10 +1049,7 @@ func typeHint(t reflect.Type, v any) string {
 // an entry of a kinds entry's dates list, "a date or a date rule" for a
 // plan's date; "" for any other key.
 func dateKey(path string) string {
-	key := path[strings.LastIndexByte(path, '.')+1:]
-	if i := strings.IndexByte(key, '['); i >= 0 {
-		key = key[:i]
-	}
+	key := fieldKey(path)
 	switch {
 	case key == "dates" && strings.Contains(path, ".kinds["):
 		return "a date"

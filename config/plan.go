@@ -644,6 +644,8 @@ func checkFilter(ps *problems, p string, weekdays, months, dates []string) {
 			hint := l.all
 			if near := nearName(strings.ToLower(strings.TrimSpace(v)), l.names, l.full); near != "" {
 				hint = fmt.Sprintf("did you mean %q?", near)
+			} else if m, err := strconv.Atoi(strings.TrimSpace(v)); err == nil && l.key == "months" && m >= 1 && m <= 12 {
+				hint = fmt.Sprintf("write the month's name: %q", monthNames[m-1]) // "8" for August
 			}
 			ps.add(fmt.Sprintf("%s.%s[%d]", p, l.key, i), v, l.what, hint)
 		}

@@ -100,12 +100,14 @@ func TestDateFilterDates(t *testing.T) {
 // TestTOMLTimeWhereTextBelongs: an unquoted TOML time or date and time
 // where text belongs (a plan's start, a dates list) is named in the file's
 // terms, not by the decoder's Go type (TOML v1.0.0: local time, local
-// date-time), and where a date belongs the hint is the date to write, not
-// quotes, which would give "not a date".
+// date-time), and the hint is what to write, not quotes, which would give
+// "not a clock time" or "not a date": the time as HH:MM where a clock time
+// belongs, the date where a date belongs.
 func TestTOMLTimeWhereTextBelongs(t *testing.T) {
 	const head = "[[sites]]\nid = \"a\"\nlatitude = 47.5\nlongitude = 9.7\ntimezone = \"Europe/Zurich\"\n[[feeds]]\nid = \"f\"\nsite = \"a\"\n"
 	for doc, want := range map[string]string{
-		head + "[[feeds.plans]]\ntitle = \"x\"\ndate = \"every day\"\nstart = 20:00:00\n": "feeds[0].plans[0].start: 20:00:00: must be text, not a time of day (put the value in quotes)",
+		head + "[[feeds.plans]]\ntitle = \"x\"\ndate = \"every day\"\nstart = 20:00:00\n": `feeds[0].plans[0].start: 20:00:00: must be text, not a time of day (write it "20:00")`,
+		head + "[[feeds.kinds]]\nkind = \"lighting:16h\"\nlatest_off = 23:30:00\n":        `feeds[0].kinds[0].latest_off: 23:30:00: must be text, not a time of day (write it "23:30")`,
 		head + "[[feeds.kinds]]\nkind = \"sunset\"\ndates = [2027-06-12T10:00:00]\n":      "feeds[0].kinds[0].dates[0]: 2027-06-12T10:00:00: must be a date, not a date and time (write it 2027-06-12)",
 	} {
 		_, err := Parse(strings.NewReader(doc), "toml")

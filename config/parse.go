@@ -1012,8 +1012,14 @@ func numberTextHint(key, x string) string {
 // a clock time "HH:MM" for a number where a time of day belongs (`write it
 // "23:00"` for 2300); "" for other keys and values.
 func nameHint(key string, v any) string {
+	clock := key == "latest_off" || key == "earliest_on" || key == "start" || key == "end"
 	var n int64
 	switch x := v.(type) {
+	case toml.LocalTime: // TOML's unquoted 20:00:00
+		if clock {
+			return fmt.Sprintf(`write it "%02d:%02d"`, x.Hour, x.Minute)
+		}
+		return ""
 	case int:
 		n = int64(x)
 	case int64:
@@ -1036,7 +1042,8 @@ func nameHint(key string, v any) string {
 		return "write the month's name: jan, feb, mar, apr, may, jun, jul, aug, sep, oct, nov or dec"
 	case "weekdays":
 		return "write the day's name: mon, tue, wed, thu, fri, sat or sun"
-	case "latest_off", "earliest_on", "start", "end":
+	}
+	if clock {
 		if n >= 0 && n < 2400 && n%100 < 60 {
 			return fmt.Sprintf(`write it "%02d:%02d"`, n/100, n%100)
 		}

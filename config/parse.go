@@ -976,12 +976,16 @@ var numberUnits = map[string][]string{
 	"high":          {"°", "deg", "degrees"},
 }
 
+// byteUnits are the units of a size written after its number, in bytes
+// (SI, as max_feed_bytes' limit of 1 MB is 1000000 bytes).
+var byteUnits = map[string]float64{"b": 1, "bytes": 1, "kb": 1e3, "mb": 1e6}
+
 // numberTextHint says how to write, as a number, text that is not one
 // where key holds a number: the number alone when the text is a number and
 // the key's own unit ("write 120" for elevation "120m"), a fraction for a
-// percentage of max_illumination, decimal degrees for a latitude or
-// longitude in degrees and minutes; "" for words ("lots"), which have no
-// number to keep.
+// percentage of max_illumination, the bytes of a size in kB or MB,
+// decimal degrees for a latitude or longitude in degrees and minutes; ""
+// for words ("lots"), which have no number to keep.
 func numberTextHint(key, x string) string {
 	n := len(x) - len(strings.TrimLeft(x, "+-.0123456789"))
 	num, unit := x[:n], strings.ToLower(strings.TrimSpace(x[n:]))
@@ -991,6 +995,11 @@ func numberTextHint(key, x string) string {
 		return "write decimal degrees, south negative, e.g. -42.88 for 42°52′48″S"
 	case key == "longitude":
 		return "write decimal degrees, west negative, e.g. -72.26 for 72°15′36″W"
+	case key == "max_feed_bytes":
+		if mul, ok := byteUnits[unit]; ok && err == nil {
+			return fmt.Sprintf("write the number of bytes: %.0f", f*mul) // 1000000 for "1MB"
+		}
+		return "write the number of bytes, e.g. 1000000"
 	case err != nil:
 		return ""
 	case key == "max_illumination" && unit == "%":
@@ -1009,8 +1018,9 @@ func numberTextHint(key, x string) string {
 
 // nameHint says how to write a value that is not text where key holds
 // text: a month's or a weekday's name for a number in months or weekdays,
-// a clock time "HH:MM" for a number where a time of day belongs (`write it
-// "23:00"` for 2300); "" for other keys and values.
+// a clock time "HH:MM" for a number or a TOML time where a time of day
+// belongs (`write it "23:00"` for 2300), ":8080" for a port alone where
+// host:port belongs; "" for other keys and values.
 func nameHint(key string, v any) string {
 	clock := key == "latest_off" || key == "earliest_on" || key == "start" || key == "end"
 	var n int64
@@ -1035,6 +1045,10 @@ func nameHint(key string, v any) string {
 		return ""
 	}
 	switch key {
+	case "listen":
+		if n >= 0 && n <= 65535 {
+			return fmt.Sprintf(`write it ":%d"`, n) // a port alone listens on every address
+		}
 	case "months":
 		if n >= 1 && n <= 12 {
 			return fmt.Sprintf("write the month's name: %q", monthNames[n-1])

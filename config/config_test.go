@@ -230,6 +230,8 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-latest-off.yaml", "feeds[0].kinds[0].latest_off", "25:00", "not a clock time", "HH:MM", 0},
 		{"bad-latest-off-number.yaml", "feeds[0].kinds[0].latest_off", "2300", "must be text, not a number", `write it "23:00"`, 0},
 		{"bad-plan-start-number.yaml", "feeds[0].plans[0].start", "2000", "must be text, not a number", `write it "20:00"`, 0},
+		// the start is written, though unreadable: its length is no problem of its own
+		{"bad-plan-start-number-for.yaml", "feeds[0].plans[0].start", "2000", "must be text, not a number", `write it "20:00"`, 0},
 		{"bad-earliest-on.yaml", "feeds[0].kinds[0].earliest_on", "5am", "not a clock time", "HH:MM", 0},
 		{"lamps-wrong-kind.yaml", "feeds[0].kinds[0].lamps", "evening", "applies only to lighting", "", 0},
 		{"bad-lighting.yaml", "feeds[0].kinds[0]", "lighting:26h", "shorter than 24h", "lighting:12h", 0},

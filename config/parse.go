@@ -179,9 +179,13 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 			if !inferred && p.Msg == msgZoneNotSet {
 				continue
 			}
-			if !covered(p.Path, problems) {
-				problems = append(problems, p)
+			if covered(p.Path, problems) {
+				continue
 			}
+			if p.Msg == msgNeedsStart && covered(p.Path[:strings.LastIndexByte(p.Path, '.')]+".start", problems) {
+				continue // the start is written, as a value that could not be read
+			}
+			problems = append(problems, p)
 		}
 	}
 	if len(dups) > 0 {

@@ -612,6 +612,10 @@ func (k Kind) IsInstant() bool {
 	return ok
 }
 
+// msgNeedsStart is the problem of a plan's end or length without a start;
+// parse leaves it out when the start was written but could not be read.
+const msgNeedsStart = "needs a start: a plan without start is all-day"
+
 // spanLimit bounds min_duration and a plan's length.
 const spanLimit = 24 * time.Hour
 
@@ -745,7 +749,7 @@ func (pl *Plan) validate(ps *problems, p string) {
 		if pl.End == "" {
 			v, key = pl.For.String(), "for"
 		}
-		ps.add(p+"."+key, v, "needs a start: a plan without start is all-day", `add e.g. start: "20:00", or remove it`)
+		ps.add(p+"."+key, v, msgNeedsStart, `add e.g. start: "20:00", or remove it`)
 	case pl.End != "" && pl.For != 0:
 		ps.add(p+".for", pl.For.String(), "give either end or for, not both", "remove one")
 	case pl.For < 0 || pl.For > Duration(spanLimit):

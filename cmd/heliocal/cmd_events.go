@@ -133,7 +133,11 @@ func checkEventsFlags(o *eventsOptions) error {
 		return badInput("--format: %q: use table, json, csv or ics", o.format)
 	}
 	if math.IsNaN(o.maxLit) || o.maxLit < 0 || o.maxLit > 1 {
-		return badInput("--max-illumination: %v: must be within 0..1", o.maxLit)
+		hint := "a fraction of 1, e.g. 0.25 for a quarter lit"
+		if o.maxLit > 1 && o.maxLit <= 100 {
+			hint = fmt.Sprintf("a fraction of 1: %g for %g %%", o.maxLit/100, o.maxLit) // 30 meant as a percentage
+		}
+		return badInput("--max-illumination: %v: must be within 0..1 (%s)", o.maxLit, hint)
 	}
 	if o.feed == "" || o.kindsSet { // runEvents parses them again, after the place and its zone note
 		if _, err := parseKinds(o.kinds); err != nil {
@@ -187,15 +191,15 @@ func eventsPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 	}
 	switch {
 	case math.IsNaN(o.lat) || o.lat < -90 || o.lat > 90:
-		return nil, badInput("--lat: %v: must be within -90..90 degrees", o.lat)
+		return nil, badInput("--lat: %v: must be within -90..90 degrees (north positive, e.g. 47.07)", o.lat)
 	case math.IsNaN(o.lon) || o.lon < -180 || o.lon > 180:
 		return nil, badInput("--lon: %v: must be within -180..180 degrees (east positive)", o.lon)
 	case math.IsNaN(o.elev) || o.elev < -500 || o.elev > 9000:
-		return nil, badInput("--elev: %v: must be within -500..9000 metres", o.elev)
+		return nil, badInput("--elev: %v: must be within -500..9000 metres (metres above sea level, not feet)", o.elev)
 	case o.pressure != nil && !(*o.pressure >= config.MinPressure && *o.pressure <= config.MaxPressure):
 		return nil, badInput("--pressure: %v: must be within %g..%g hPa (the air pressure at the place)", *o.pressure, config.MinPressure, config.MaxPressure)
 	case o.temperature != nil && !(*o.temperature >= config.MinTemperature && *o.temperature <= config.MaxTemperature):
-		return nil, badInput("--temperature: %v: must be within %g..%g °C", *o.temperature, config.MinTemperature, config.MaxTemperature)
+		return nil, badInput("--temperature: %v: must be within %g..%g °C (degrees Celsius, not Fahrenheit)", *o.temperature, config.MinTemperature, config.MaxTemperature)
 	}
 	if o.tz == "" {
 		z, err := config.ZoneLocationAt(o.lat, o.lon)

@@ -253,5 +253,19 @@ func flagValueError(err error) error {
 	case "duration":
 		what = `not a duration (a number with a unit, e.g. "30s", "2m")`
 	}
+	if hint, ok := flagHints[iv.GetFlag().Name]; ok {
+		what += " (" + hint + ")"
+	}
 	return fmt.Errorf("--%s: %q: %s", iv.GetFlag().Name, iv.GetValue(), what)
+}
+
+// flagHints say how to write the value of a flag of a place, as the
+// configuration's hints say it for the site's keys.
+var flagHints = map[string]string{
+	"lat":              "decimal degrees, south negative, e.g. -42.88 for 42°52′48″S",
+	"lon":              "decimal degrees, west negative, e.g. -72.26 for 72°15′36″W",
+	"elev":             "metres above sea level, the number alone, e.g. 120",
+	"pressure":         "hPa, the number alone, e.g. 1013",
+	"temperature":      "degrees Celsius, the number alone, e.g. -5",
+	"max-illumination": "a fraction of 1, e.g. 0.25 for a quarter lit",
 }

@@ -36,12 +36,20 @@ const chartLabelProblems = `(() => {
   return out;
 })()`
 
+// chartPlots lists, per figure, the heights in CSS pixels of the plots of
+// the year charts shown (not display:none).
+const chartPlots = `[...document.querySelectorAll("figure")].map(f => [...f.querySelectorAll(":scope > svg")]
+  .filter(s => getComputedStyle(s).display !== "none").map(s => s.querySelector("rect.plot").getBoundingClientRect().height))`
+
 // The static index `publish` writes fits a 320 px and a 390 px phone, a
 // 768 px tablet and a 1280 px desk without horizontal scrolling, and its
 // year charts' labels stay readable once the chart is scaled to the width
 // without running into each other or over the plot: their boxes (about 1.15
 // times the font's size) at least 12 px tall on the 390 px phone, 11 px on
-// the 320 px one and 10 px on the tablet and the desk.
+// the 320 px one and 10 px on the tablet and the desk. Each site shows one
+// chart, whose plot (the clock from midnight to midnight) is at least 300 px
+// tall on the 390 px phone and 240 px on the 320 px one, where the wide
+// chart scaled to the width had 117 and 97: a phone draws a chart of its own.
 func TestBrowserPublishedIndex(t *testing.T) {
 	ctx := browser(t)
 	out := t.TempDir()
@@ -55,7 +63,8 @@ func TestBrowserPublishedIndex(t *testing.T) {
 		for _, w := range []struct {
 			width, height int64
 			px            float64 // the smallest label, in CSS pixels
-		}{{1280, 900, 10}, {768, 1000, 10}, {390, 844, 12}, {320, 640, 11}} {
+			plot          float64 // the smallest plot's height, in CSS pixels
+		}{{1280, 900, 10, 240}, {768, 1000, 10, 230}, {390, 844, 12, 300}, {320, 640, 11, 240}} {
 			if err := chromedp.Do(ctx, chromedp.EmulateViewport(w.width, w.height)); err != nil {
 				t.Fatal(err)
 			}
@@ -77,6 +86,15 @@ func TestBrowserPublishedIndex(t *testing.T) {
 			t.Logf("%s at %d px: the smallest chart label is %.1f px tall", page, w.width, px)
 			if px < w.px {
 				t.Errorf("%s at %d px: chart labels %.1f px tall, want at least %g", page, w.width, px, w.px)
+			}
+			plots, err := chromedp.Run(ctx, chromedp.Evaluate[[][]float64](chartPlots))
+			if err != nil {
+				t.Fatal(err)
+			}
+			for i, p := range plots {
+				if len(p) != 1 || p[0] < w.plot {
+					t.Errorf("%s at %d px: chart %d shows plots %v px tall, want one at least %g px tall", page, w.width, i+1, p, w.plot)
+				}
 			}
 			if w.width == 390 && strings.HasSuffix(page, out+"/index.html") {
 				shot(t, ctx, "index-390.png")

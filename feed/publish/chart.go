@@ -142,23 +142,67 @@ func Above(dayStart, dayEnd time.Time, rising, setting []time.Time, alwaysAbove 
 	return total
 }
 
-// Chart geometry, in SVG user units. The clock runs down the plot, midnight
-// at the top and at the bottom.
+// geometry is where a chart is drawn, in SVG user units: the viewBox W×H
+// and the plot inside it, Left..Left+PlotW across and Top..Top+PlotH down.
+// The clock runs down the plot, midnight at the top and at the bottom.
+type geometry struct {
+	W, H, Left, Top, PlotW, PlotH float64
+	// Phone is the narrow chart shown on a phone in place of the wide one:
+	// no hour suffix ":00", no labels of marks, thresholds and today (their
+	// lines keep their tooltips, the caption says them), the hour labels
+	// centred on their lines.
+	Phone bool
+}
+
+// desk is the wide chart of a tablet, a desk and paper; phone is drawn in
+// its place on screens up to 28rem wide (a 390 px phone shows it about
+// 370 px wide, 14 units an hour: a plot about 350 px tall where the wide
+// chart, scaled to the width, had 115).
+var (
+	desk  = geometry{W: 760, H: 318, Left: 44, Top: 44, PlotW: 700, PlotH: 240} // 10 units an hour
+	phone = geometry{W: 360, H: 370, Left: 26, Top: 14, PlotW: 328, PlotH: 336, Phone: true}
+)
+
+// The wide chart's plot, as its tests read it.
 const (
-	chartW     = 760
-	chartH     = 318
 	plotLeft   = 44
 	plotTop    = 44
 	plotW      = 700
-	plotH      = 240 // 10 units per hour
-	plotBottom = plotTop + plotH
-	phaseY     = plotTop - 6 // the row of Moon phase symbols
+	plotBottom = 44 + 240
 )
 
+// bottom is the plot's lower edge.
+func (g geometry) bottom() float64 { return g.Top + g.PlotH }
+
+// chartView is what the page says and draws of a site's year: the title and
+// words once, and the drawing in the wide geometry (desk, embedded) and the
+// narrow one (Phone).
 type chartView struct {
-	ID         string // unique id for aria references
-	Title      string
-	Summary    string
+	ID      string // unique id for aria references
+	Title   string
+	Summary string
+	Held    string // the dates the feeds of shorter windows are drawn on, in words
+	drawing
+	Phone drawing
+}
+
+// Desk is the chart drawn in the wide geometry.
+func (v *chartView) Desk() drawing { return v.drawing }
+
+// drawing is a chart drawn in one geometry.
+type drawing struct {
+	ID         string // the chart's id, for the shared hatch pattern
+	Title      string // the chart's title, its name
+	Class      string // "desk" or "ph"
+	ViewBox    string // "0 0 W H"
+	W, H       string
+	Left, Top  string // the plot's corner
+	PlotW      string
+	PlotH      string
+	Right      string // Left+PlotW
+	Bottom     string // Top+PlotH
+	TickEnd    string // the lower end of the months' ticks
+	Phone      bool
 	Rise, Set  string // path data of the sunrise and sunset curves
 	Lamps      string // path data of the lamp periods, one stroke a day
 	Dark       string // path data of the dark windows
@@ -169,7 +213,6 @@ type chartView struct {
 	Thresholds []thresholdView
 	Phases     []phaseView
 	Today      *todayView
-	Held       string // the dates the feeds of shorter windows are drawn on, in words
 }
 
 type tickView struct {
@@ -201,8 +244,8 @@ type phaseView struct {
 }
 
 type todayView struct {
-	X, TX, TY, Date string
-	PastW           string // width of the shade over the dates before today
+	X, TX, TY, Y2, Date string
+	PastW               string // width of the shade over the dates before today
 }
 
 func num(v float64) string {
@@ -225,17 +268,21 @@ func clipHours(d time.Duration) float64 {
 }
 
 // yOf is the height of a clock time, h hours after local midnight.
-func yOf(h float64) float64 { return plotTop + h*plotH/24 }
+func (g geometry) yOf(h float64) float64 { return g.Top + h*g.PlotH/24 }
 
-// dayStep is the width of one day.
-func dayStep(n int) float64 { return float64(plotW) / float64(n) }
+// dayStep is the width of one day of n.
+func (g geometry) dayStep(n int) float64 { return g.PlotW / float64(n) }
+
+// yOf and dayStep of the wide chart.
+func yOf(h float64) float64 { return desk.yOf(h) }
+func dayStep(n int) float64 { return desk.dayStep(n) }
 
 // curve is the path of a clock time through the days, broken where a day
 // has none (the polar day and night) and where the time passes midnight
 // from one day to the next (a sunset just after midnight near the midnight
 // Sun), rather than drawn across the whole plot.
-func curve(days []ChartDay, val func(ChartDay) (time.Duration, bool)) string {
-	step := dayStep(len(days))
+func (g geometry) curve(days []ChartDay, val func(ChartDay) (time.Duration, bool)) string {
+	step := g.dayStep(len(days))
 	var b strings.Builder
 	pen := false
 	var prev time.Duration
@@ -257,9 +304,9 @@ func curve(days []ChartDay, val func(ChartDay) (time.Duration, bool)) string {
 		} else {
 			b.WriteByte('M')
 		}
-		b.WriteString(num(plotLeft + (float64(i)+0.5)*step))
+		b.WriteString(num(g.Left + (float64(i)+0.5)*step))
 		b.WriteByte(',')
-		b.WriteString(num(yOf(clipHours(v))))
+		b.WriteString(num(g.yOf(clipHours(v))))
 		pen = true
 	}
 	return b.String()
@@ -267,12 +314,12 @@ func curve(days []ChartDay, val func(ChartDay) (time.Duration, bool)) string {
 
 // spans is the path of clock spans, one vertical stroke (as wide as a day)
 // per piece.
-func spans(days []ChartDay, ss []ClockSpan) string {
+func (g geometry) spans(days []ChartDay, ss []ClockSpan) string {
 	if len(ss) == 0 {
 		return ""
 	}
 	first := days[0].Date
-	step := dayStep(len(days))
+	step := g.dayStep(len(days))
 	var b strings.Builder
 	for _, s := range ss {
 		i := int(math.Round(s.Date.Sub(first).Hours() / 24))
@@ -282,7 +329,7 @@ func spans(days []ChartDay, ss []ClockSpan) string {
 		if b.Len() > 0 {
 			b.WriteByte(' ')
 		}
-		fmt.Fprintf(&b, "M%s,%sV%s", num(plotLeft+(float64(i)+0.5)*step), num(yOf(clipHours(s.From))), num(yOf(clipHours(s.To))))
+		fmt.Fprintf(&b, "M%s,%sV%s", num(g.Left+(float64(i)+0.5)*step), num(g.yOf(clipHours(s.From))), num(g.yOf(clipHours(s.To))))
 	}
 	return b.String()
 }
@@ -301,21 +348,13 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 	first, last := days[0].Date, days[len(days)-1].Date
 	today := todayIndex(c.Today, days)
 	v := &chartView{
-		ID:         "chart-" + id,
-		Title:      chartTitle(siteName, first, last, len(c.Lamps) > 0, len(c.Dark) > 0),
-		Rise:       curve(days, func(d ChartDay) (time.Duration, bool) { return d.Rise, d.HasRise }),
-		Set:        curve(days, func(d ChartDay) (time.Duration, bool) { return d.Set, d.HasSet }),
-		Lamps:      spans(days, c.Lamps),
-		Dark:       spans(days, c.Dark),
-		Step:       num(math.Max(dayStep(len(days)), 1)),
-		Months:     monthTicks(days),
-		Hours:      hourTicks(),
-		Marks:      markViews(c.Marks, c.Location, first, last),
-		Thresholds: thresholdViews(days, c.Levels),
-		Phases:     phaseViews(c.Phases, c.Location, first, last),
-		Today:      todayMark(today, days),
-		Held:       heldText(c.Held, first, last),
+		ID:      "chart-" + id,
+		Title:   chartTitle(siteName, first, last, len(c.Lamps) > 0, len(c.Dark) > 0),
+		Held:    heldText(c.Held, first, last),
+		drawing: desk.draw("chart-"+id, "desk", c, today),
+		Phone:   phone.draw("chart-"+id, "ph", c, today),
 	}
+	v.drawing.Title, v.Phone.Title = v.Title, v.Title
 	ahead := days // the summary speaks of the year from today
 	if today > 0 {
 		ahead = days[today:]
@@ -336,6 +375,37 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 		v.Summary += " Today at this site (" + v.Today.Date + ") is marked; the figures are for the year from it."
 	}
 	return v
+}
+
+// draw draws the chart c in the geometry g; today is the index of today's
+// date in c.Days (see todayIndex).
+func (g geometry) draw(id, class string, c *SiteChart, today int) drawing {
+	days := c.Days
+	first, last := days[0].Date, days[len(days)-1].Date
+	return drawing{
+		ID: id, Class: class, Phone: g.Phone,
+		ViewBox:    "0 0 " + num(g.W) + " " + num(g.H),
+		W:          num(g.W),
+		H:          num(g.H),
+		Left:       num(g.Left),
+		Top:        num(g.Top),
+		PlotW:      num(g.PlotW),
+		PlotH:      num(g.PlotH),
+		Right:      num(g.Left + g.PlotW),
+		Bottom:     num(g.bottom()),
+		TickEnd:    num(g.bottom() + 5),
+		Rise:       g.curve(days, func(d ChartDay) (time.Duration, bool) { return d.Rise, d.HasRise }),
+		Set:        g.curve(days, func(d ChartDay) (time.Duration, bool) { return d.Set, d.HasSet }),
+		Lamps:      g.spans(days, c.Lamps),
+		Dark:       g.spans(days, c.Dark),
+		Step:       num(math.Max(g.dayStep(len(days)), 1)),
+		Months:     g.monthTicks(days),
+		Hours:      g.hourTicks(),
+		Marks:      g.markViews(c.Marks, c.Location, first, last),
+		Thresholds: g.thresholdViews(days, c.Levels),
+		Phases:     g.phaseViews(c.Phases, c.Location, first, last),
+		Today:      g.todayMark(today, days),
+	}
 }
 
 // heldText says, for each feed that holds fewer dates than the chart
@@ -433,16 +503,16 @@ func chartSummary(days []ChartDay) string {
 // labelled when at least 12 days of that month are in the chart; Short when
 // fewer than 27 are, too narrow a column for the label a phone draws, and
 // Alt every second label of the others.
-func monthTicks(days []ChartDay) []tickView {
+func (g geometry) monthTicks(days []ChartDay) []tickView {
 	var ticks []tickView
-	step := float64(plotW) / float64(len(days))
+	step := g.dayStep(len(days))
 	alt := false
 	for i, d := range days {
 		if d.Date.Day() != 1 && i != 0 {
 			continue
 		}
-		x := plotLeft + float64(i)*step
-		tv := tickView{X: num(x), TX: num(x + 3), TY: num(plotBottom + 14)}
+		x := g.Left + float64(i)*step
+		tv := tickView{X: num(x), TX: num(x + 3), TY: num(g.bottom() + 14)}
 		end := time.Date(d.Date.Year(), d.Date.Month()+1, 1, 0, 0, 0, 0, time.UTC)
 		if n := len(days) - i; end.Sub(d.Date) >= 12*24*time.Hour && n >= 12 {
 			tv.Label = d.Date.Format("Jan")
@@ -460,11 +530,15 @@ func monthTicks(days []ChartDay) []tickView {
 
 // hourTicks marks the clock every 6 hours, labelled with the hour ("06";
 // the template adds ":00", which a phone leaves out).
-func hourTicks() []tickView {
+func (g geometry) hourTicks() []tickView {
 	var ticks []tickView
 	for h := 0; h <= 24; h += 6 {
-		y := yOf(float64(h))
-		ticks = append(ticks, tickView{Y: num(y), TX: num(plotLeft - 6), TY: num(y + 4), Label: fmt.Sprintf("%02d", h)})
+		y := g.yOf(float64(h))
+		tv := tickView{Y: num(y), TX: num(g.Left - 6), TY: num(y + 4), Label: fmt.Sprintf("%02d", h)}
+		if g.Phone {
+			tv.TX, tv.TY = num(g.Left-5), num(y) // centred on the line by the page's style
+		}
+		ticks = append(ticks, tv)
 	}
 	return ticks
 }
@@ -473,7 +547,7 @@ func hourTicks() []tickView {
 // lines. Each label stays inside the chart, on the first of two rows where
 // it does not run into the previous label; with no room, the line stays and
 // the label is only in its tooltip and the caption.
-func markViews(marks []Mark, loc *time.Location, first, last time.Time) []markView {
+func (g geometry) markViews(marks []Mark, loc *time.Location, first, last time.Time) []markView {
 	span := last.Add(24 * time.Hour).Sub(first)
 	marks = append([]Mark(nil), marks...)
 	sort.SliceStable(marks, func(i, j int) bool { return marks[i].At.Before(marks[j].At) })
@@ -481,24 +555,28 @@ func markViews(marks []Mark, loc *time.Location, first, last time.Time) []markVi
 	rowEnd := [2]float64{math.Inf(-1), math.Inf(-1)}
 	for _, m := range marks {
 		at := wallClock(m.At, loc)
-		x, ok := chartX(at, first, span)
+		x, ok := g.chartX(at, first, span)
 		if !ok {
+			continue
+		}
+		mv := markView{X: num(x), Y1: num(g.Top), Y2: num(g.bottom()), Label: m.Label, Date: chartDate(at.UTC(), first, last)}
+		if g.Phone { // no room for the labels: the tooltip and the caption say them
+			views = append(views, mv)
 			continue
 		}
 		w := 5.6 * float64(len([]rune(m.Label))) // about 5.6 units a character at 10 px
 		anchor, left := "middle", x-w/2
 		switch {
-		case x+w/2 > chartW-2:
+		case x+w/2 > g.W-2:
 			anchor, left = "end", x-w
 		case x-w/2 < 2:
 			anchor, left = "start", x
 		}
-		mv := markView{X: num(x), Y1: num(plotTop), Y2: num(plotBottom), Anchor: anchor, Label: m.Label,
-			Date: chartDate(at.UTC(), first, last)}
+		mv.Anchor = anchor
 		for r := range rowEnd {
 			if left > rowEnd[r]+6 {
 				rowEnd[r] = left + w
-				mv.Y1, mv.TY, mv.Shown = num(plotTop-10-12*float64(r)), num(plotTop-14-12*float64(r)), true
+				mv.Y1, mv.TY, mv.Shown = num(g.Top-10-12*float64(r)), num(g.Top-14-12*float64(r)), true
 				break
 			}
 		}
@@ -511,8 +589,8 @@ func markViews(marks []Mark, loc *time.Location, first, last time.Time) []markVi
 // photoperiod threshold: the first day at or over it ("↑") or the first day
 // under it ("↓"). The labels alternate between two rows, left to right, so
 // that neighbours do not overlap.
-func thresholdViews(days []ChartDay, levels []Level) []thresholdView {
-	step := dayStep(len(days))
+func (g geometry) thresholdViews(days []ChartDay, levels []Level) []thresholdView {
+	step := g.dayStep(len(days))
 	type crossing struct {
 		i  int
 		up bool
@@ -530,9 +608,9 @@ func thresholdViews(days []ChartDay, levels []Level) []thresholdView {
 	sort.SliceStable(cs, func(a, b int) bool { return cs[a].i < cs[b].i })
 	views := make([]thresholdView, len(cs))
 	for n, c := range cs {
-		x := plotLeft + float64(c.i)*step
+		x := g.Left + float64(c.i)*step
 		label := formatHours(c.lv.Length)
-		tv := thresholdView{X: num(x), TX: num(x + 2), TY: num(plotBottom - 4 - 12*float64(n%2))}
+		tv := thresholdView{X: num(x), TX: num(x + 2), TY: num(g.bottom() - 4 - 12*float64(n%2))}
 		if c.up {
 			tv.Label = label + " ↑"
 			tv.Text = fmt.Sprintf("Day length reaches %s on %s", label, chartDate(days[c.i].Date, days[0].Date, days[len(days)-1].Date))
@@ -550,26 +628,26 @@ func thresholdViews(days []ChartDay, levels []Level) []thresholdView {
 
 // chartX is the x of the wall-clock time at on a chart of span from
 // first; false when at is outside it.
-func chartX(at, first time.Time, span time.Duration) (float64, bool) {
+func (g geometry) chartX(at, first time.Time, span time.Duration) (float64, bool) {
 	off := at.Sub(first)
 	if off < 0 || off >= span {
 		return 0, false
 	}
-	return plotLeft + float64(plotW)*off.Hours()/span.Hours(), true
+	return g.Left + g.PlotW*off.Hours()/span.Hours(), true
 }
 
 // phaseViews places the new and full Moons within first..last on the row
 // above the plot.
-func phaseViews(phases []Phase, loc *time.Location, first, last time.Time) []phaseView {
+func (g geometry) phaseViews(phases []Phase, loc *time.Location, first, last time.Time) []phaseView {
 	span := last.Add(24 * time.Hour).Sub(first)
 	var views []phaseView
 	for _, p := range phases {
 		at := wallClock(p.At, loc)
-		x, ok := chartX(at, first, span)
+		x, ok := g.chartX(at, first, span)
 		if !ok {
 			continue
 		}
-		views = append(views, phaseView{X: num(x), Y: num(phaseY), Full: p.Full, Date: chartDate(at.UTC(), first, last)})
+		views = append(views, phaseView{X: num(x), Y: num(g.Top - 6), Full: p.Full, Date: chartDate(at.UTC(), first, last)})
 	}
 	return views
 }
@@ -586,13 +664,17 @@ func chartDate(t, first, last time.Time) string {
 
 // todayMark is the line at days[i], today's date (see todayIndex); nil when
 // today is not in the chart (i < 0).
-func todayMark(i int, days []ChartDay) *todayView {
+func (g geometry) todayMark(i int, days []ChartDay) *todayView {
 	if i < 0 {
 		return nil
 	}
-	x := plotLeft + (float64(i)+0.5)*dayStep(len(days))
-	return &todayView{X: num(x), TX: num(x + 3), TY: num(plotBottom + 26), Date: days[i].Date.Format("2 Jan 2006"),
-		PastW: num(float64(i) * dayStep(len(days)))}
+	x := g.Left + (float64(i)+0.5)*g.dayStep(len(days))
+	tv := &todayView{X: num(x), TX: num(x + 3), TY: num(g.bottom() + 26), Y2: num(g.bottom() + 12), Date: days[i].Date.Format("2 Jan 2006"),
+		PastW: num(float64(i) * g.dayStep(len(days)))}
+	if g.Phone { // no label under the plot: the line ends at it
+		tv.Y2 = num(g.bottom())
+	}
+	return tv
 }
 
 // todayIndex is the index of today's date in days, -1 when it is not in

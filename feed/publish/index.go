@@ -280,6 +280,7 @@ code{font-size:.85em}
 figure{margin:0 0 1rem}
 figcaption{font-size:.9rem;color:#444}
 svg{max-width:100%;height:auto;display:block}
+svg.ph{display:none}
 svg text{font:10px system-ui,sans-serif;fill:currentColor}
 svg .yl{text-anchor:end}
 .plot{fill:none;stroke:currentColor;stroke-opacity:.35;stroke-width:.8}
@@ -298,8 +299,8 @@ svg .tl{fill:#287a36;stroke:#fbfaf6;stroke-width:3px;stroke-linejoin:round;paint
 .key{display:inline-block;width:1.4em;height:0;vertical-align:.3em;margin:0 .25em 0 .6em;border-top:3px solid}
 .key.rise{border-color:#c86a14}.key.set{border-color:#5b4bb7}.key.lamp{border-top-width:.8em;vertical-align:-.1em;border-color:#1f9e8973}svg.swatch{display:inline-block;width:1.4em;height:.8em;vertical-align:-.1em;margin:0 .25em 0 .6em}.key.thr{border-top:2px dashed #287a36}.key.mark{border-top:2px solid #c0392b}.key.today{border-top:2px solid currentColor}
 @media (max-width:40rem){body{padding:.6rem}svg text{font-size:18px}svg .ml,svg .tl,svg .tdl,svg .short,svg .mm{display:none}svg .yl{dominant-baseline:central}svg .mo{transform:translateY(11px)}table,tbody,tr,td{display:block}thead{display:none}tr{border-bottom:1px solid #e4e2dc;padding:.4rem 0}td{border:0;padding:.1rem 0}td.num{display:inline-block;margin-right:1rem}.unit{display:inline}}
-@media (max-width:28rem){svg text{font-size:24px}}
-@media (max-width:22.5rem){svg text{font-size:28px}svg .alt{display:none}}
+@media (max-width:28rem){svg.desk{display:none}svg.ph{display:block;width:100%}svg.ph text{font-size:12px}svg.ph .mo{transform:none}}
+@media (max-width:22.5rem){svg.ph text{font-size:13px}svg.ph .alt{display:none}}
 @media screen and (prefers-color-scheme:dark){body{color:#e6e4de;background:#16181f}.place{color:#b4b2ac}.caution{background:#2b2517}a{color:#8fb8ff}th,td,tr{border-bottom-color:#333846}figcaption{color:#c4c2bc}.rise,.key.rise{stroke:#f0a04b;border-color:#f0a04b}.set,.key.set{stroke:#a99bff;border-color:#a99bff}.thr{stroke:#6cc47a}.key.thr{border-top-color:#6cc47a}svg .tl{fill:#6cc47a;stroke:#16181f}.mark{stroke:#ff7a6b}.key.mark{border-top-color:#ff7a6b}.hatch rect{fill:#9fb0d0}.hatch line{stroke:#9fb0d0}}
 @media print{h2,.place{break-after:avoid}figure,tr{break-inside:avoid}}
 </style>
@@ -318,28 +319,14 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{
 <section id="site-{{.ID}}">
 <h2>{{.Name}}</h2>
 <p class="place">{{.Coords}}, elevation {{.Elevation}}{{with .Conditions}}, {{.}}{{end}}, time zone {{.Zone}}</p>
-{{with .Chart}}{{$step := .Step}}{{$id := .ID}}<figure>
-<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 760 318" width="760" height="318" role="img">
-<title id="{{.ID}}-t">{{.Title}}</title>
-{{if .Dark}}<defs><pattern id="{{.ID}}-hatch" class="hatch" width="6" height="6" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><rect width="6" height="6"/><line x1="3" y1="0" x2="3" y2="6"/></pattern></defs>
-{{end}}<rect class="plot" x="44" y="44" width="700" height="240"/>
-{{with .Today}}{{if ne .PastW "0"}}<rect class="past" x="44" y="44" width="{{.PastW}}" height="240"><title>before today</title></rect>
-{{end}}{{end}}{{with .Dark}}<path class="dark" stroke="url(#{{$id}}-hatch)" stroke-width="{{$step}}" d="{{.}}"><title>dark windows</title></path>
-{{end}}{{with .Lamps}}<path class="lamp" stroke-width="{{$step}}" d="{{.}}"><title>lamp periods</title></path>
-{{end}}{{range .Hours}}<line class="grid" x1="44" x2="744" y1="{{.Y}}" y2="{{.Y}}"/><text class="yl" x="{{.TX}}" y="{{.TY}}">{{.Label}}<tspan class="mm">:00</tspan></text>
-{{end}}{{range .Months}}<line class="tick" x1="{{.X}}" x2="{{.X}}" y1="284" y2="289"/>{{if .Label}}<text class="mo{{if .Short}} short{{end}}{{if .Alt}} alt{{end}}" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>{{end}}
-{{end}}{{with .Rise}}<path class="rise" d="{{.}}"><title>sunrise</title></path>
-{{end}}{{with .Set}}<path class="set" d="{{.}}"><title>sunset</title></path>
-{{end}}{{range .Thresholds}}<line class="thr" x1="{{.X}}" x2="{{.X}}" y1="44" y2="284"><title>{{.Text}}</title></line><text class="tl" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>
-{{end}}{{range .Marks}}<line class="mark" x1="{{.X}}" x2="{{.X}}" y1="{{.Y1}}" y2="{{.Y2}}"><title>{{.Label}}, {{.Date}}</title></line>{{if .Shown}}<text class="ml" x="{{.X}}" y="{{.TY}}" text-anchor="{{.Anchor}}">{{.Label}}</text>{{end}}
-{{end}}{{range .Phases}}<circle class="moon{{if .Full}} full{{end}}" cx="{{.X}}" cy="{{.Y}}" r="3.5"><title>{{if .Full}}full Moon{{else}}new Moon{{end}}, {{.Date}}</title></circle>
-{{end}}{{with .Today}}<line class="today" x1="{{.X}}" x2="{{.X}}" y1="44" y2="296"><title>today, {{.Date}}</title></line><text class="tdl" x="{{.TX}}" y="{{.TY}}">today</text>
-{{end}}</svg>
+{{with .Chart}}<figure>
+{{template "drawing" .Desk}}
+{{template "drawing" .Phone}}
 <figcaption>{{.Summary}} Local clock time (hours down, months across) of
 <span class="key rise"></span>sunrise and
 <span class="key set"></span>sunset{{if .Lamps}},
 <span class="key lamp"></span>lamp periods{{end}}{{if .Dark}},
-<svg class="swatch" viewBox="0 0 22 12" width="22" height="12" aria-hidden="true"><rect class="dark" width="22" height="12" fill="url(#{{.ID}}-hatch)"/></svg>dark windows (hatched){{end}}{{if .Thresholds}},
+<svg class="swatch" viewBox="0 0 22 12" width="22" height="12" aria-hidden="true"><rect class="dark" width="22" height="12" fill="url(#{{.ID}}-hatch)"/><defs><pattern id="{{.ID}}-hatch" class="hatch" width="6" height="6" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><rect width="6" height="6"/><line x1="3" y1="0" x2="3" y2="6"/></pattern></defs></svg>dark windows (hatched){{end}}{{if .Thresholds}},
 <span class="key thr"></span>photoperiod threshold crossings{{end}}{{if .Today}},
 <span class="key today"></span>today{{if ne .Today.PastW "0"}} (the weeks before it shaded){{end}}{{end}}; along the top, ○ new and <span style="color:#e8c547">●</span> full Moon.{{if .Marks}} <span class="key mark"></span>Red lines:{{range $i, $m := .Marks}}{{if $i}};{{end}} {{$m.Label}} ({{$m.Date}}){{end}}.{{end}}{{with .Held}} {{.}}{{end}}</figcaption>
 </figure>
@@ -355,5 +342,19 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{
 <footer>{{with .Contact}}<p>{{.}}</p>{{end}}<p>Published by heliocal.</p></footer>
 </body>
 </html>
-`))
+{{define "drawing"}}{{$step := .Step}}{{$id := .ID}}{{$d := .}}<svg class="{{.Class}}" xmlns="http://www.w3.org/2000/svg" viewBox="{{.ViewBox}}" width="{{.W}}" height="{{.H}}" role="img">
+<title>{{.Title}}</title>
+<rect class="plot" x="{{.Left}}" y="{{.Top}}" width="{{.PlotW}}" height="{{.PlotH}}"/>
+{{with .Today}}{{if ne .PastW "0"}}<rect class="past" x="{{$d.Left}}" y="{{$d.Top}}" width="{{.PastW}}" height="{{$d.PlotH}}"><title>before today</title></rect>
+{{end}}{{end}}{{with .Dark}}<path class="dark" stroke="url(#{{$id}}-hatch)" stroke-width="{{$step}}" d="{{.}}"><title>dark windows</title></path>
+{{end}}{{with .Lamps}}<path class="lamp" stroke-width="{{$step}}" d="{{.}}"><title>lamp periods</title></path>
+{{end}}{{range .Hours}}<line class="grid" x1="{{$d.Left}}" x2="{{$d.Right}}" y1="{{.Y}}" y2="{{.Y}}"/><text class="yl" x="{{.TX}}" y="{{.TY}}">{{.Label}}{{if not $d.Phone}}<tspan class="mm">:00</tspan>{{end}}</text>
+{{end}}{{range .Months}}<line class="tick" x1="{{.X}}" x2="{{.X}}" y1="{{$d.Bottom}}" y2="{{$d.TickEnd}}"/>{{if .Label}}<text class="mo{{if .Short}} short{{end}}{{if .Alt}} alt{{end}}" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>{{end}}
+{{end}}{{with .Rise}}<path class="rise" d="{{.}}"><title>sunrise</title></path>
+{{end}}{{with .Set}}<path class="set" d="{{.}}"><title>sunset</title></path>
+{{end}}{{range .Thresholds}}<line class="thr" x1="{{.X}}" x2="{{.X}}" y1="{{$d.Top}}" y2="{{$d.Bottom}}"><title>{{.Text}}</title></line>{{if not $d.Phone}}<text class="tl" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>{{end}}
+{{end}}{{range .Marks}}<line class="mark" x1="{{.X}}" x2="{{.X}}" y1="{{.Y1}}" y2="{{.Y2}}"><title>{{.Label}}, {{.Date}}</title></line>{{if .Shown}}<text class="ml" x="{{.X}}" y="{{.TY}}" text-anchor="{{.Anchor}}">{{.Label}}</text>{{end}}
+{{end}}{{range .Phases}}<circle class="moon{{if .Full}} full{{end}}" cx="{{.X}}" cy="{{.Y}}" r="3.5"><title>{{if .Full}}full Moon{{else}}new Moon{{end}}, {{.Date}}</title></circle>
+{{end}}{{with .Today}}<line class="today" x1="{{.X}}" x2="{{.X}}" y1="{{$d.Top}}" y2="{{.Y2}}"><title>today, {{.Date}}</title></line>{{if not $d.Phone}}<text class="tdl" x="{{.TX}}" y="{{.TY}}">today</text>{{end}}
+{{end}}</svg>{{end}}`))
 })

@@ -4,6 +4,7 @@ import (
 	"context"
 	"encoding/xml"
 	"errors"
+	"fmt"
 	"io"
 	"math"
 	"slices"
@@ -76,6 +77,18 @@ func (e *element) all(name string) []*element {
 	return out
 }
 
+// charts are the year charts drawn in one class of geometry: "desk" (a
+// tablet, a desk, paper) or "ph" (a phone).
+func (e *element) charts(class string) []*element {
+	var out []*element
+	for _, svg := range e.all("svg") {
+		if svg.Attr["class"] == class {
+			out = append(out, svg)
+		}
+	}
+	return out
+}
+
 func (e *element) text() string {
 	s := e.Text
 	for _, c := range e.Children {
@@ -142,7 +155,12 @@ func TestIndexPage(t *testing.T) {
 	if strings.Contains(first, "ice-camp-sun") {
 		t.Error("the ice camp's feed is listed under the orchard")
 	}
-	if got := len(doc.all("svg")); got != 2 {
+	for _, figure := range doc.all("figure") {
+		if desk, ph := len(figure.charts("desk")), len(figure.charts("ph")); desk != 1 || ph != 1 {
+			t.Errorf("a figure of %d wide and %d phone charts, want one of each", desk, ph)
+		}
+	}
+	if got := len(doc.charts("desk")); got != 2 {
 		t.Errorf("%d charts, want one per site", got)
 	}
 	// The caution, whole.
@@ -343,7 +361,7 @@ func TestChartPolarDayAndNight(t *testing.T) {
 		return nil, nil // no chart for the other site
 	}
 	doc := parseStrict(t, renderIndexFor(t, opts, testCalendars(t, "")))
-	svgs := doc.all("svg")
+	svgs := doc.charts("desk")
 	if len(svgs) != 1 {
 		t.Fatalf("%d charts, want 1 (the other site has none)", len(svgs))
 	}
@@ -447,6 +465,82 @@ func TestChartPolarDayAndNight(t *testing.T) {
 	}
 }
 
+// A phone draws its own chart of the year in place of the wide one: on a
+// 390 px phone (371 px wide inside the page's padding) the wide chart's
+// plot was 117 px tall, the day-length curves and lamp strokes crowded into
+// it; the phone's plot is at least 300 px tall, holds the same points (the
+// USNO sunrise and sunset of 20 March) and draws its lines without the
+// labels it has no room for (their tooltips and the caption keep them).
+func TestChartPhoneGeometry(t *testing.T) {
+	_, camp := testSites(t)
+	c := usnoChart(t, camp)
+	c.Today = time.Date(2015, 3, 20, 0, 0, 0, 0, time.UTC)
+	opts := testOptions()
+	opts.Charts = func(_ context.Context, s feed.Site, _ []Trimmed) (*SiteChart, error) {
+		if s.ID == camp.ID {
+			return c, nil
+		}
+		return nil, nil
+	}
+	page := renderIndexFor(t, opts, testCalendars(t, ""))
+	doc := parseStrict(t, page)
+	phones := doc.charts("ph")
+	if len(phones) != 1 {
+		t.Fatalf("%d phone charts, want 1", len(phones))
+	}
+	svg := phones[0]
+	var vb [4]float64
+	if _, err := fmt.Sscanf(svg.Attr["viewBox"], "%g %g %g %g", &vb[0], &vb[1], &vb[2], &vb[3]); err != nil {
+		t.Fatalf("viewBox %q: %v", svg.Attr["viewBox"], err)
+	}
+	var plot *element
+	for _, r := range svg.all("rect") {
+		if r.Attr["class"] == "plot" {
+			plot = r
+		}
+	}
+	if plot == nil {
+		t.Fatal("the phone chart has no plot")
+	}
+	at := func(k string) float64 { v, _ := strconv.ParseFloat(plot.Attr[k], 64); return v }
+	scale := 371 / vb[2]
+	if h := at("height") * scale; h < 300 {
+		t.Errorf("viewBox %q, plot %g units tall: %.0f px on a 390 px phone, want at least 300", svg.Attr["viewBox"], at("height"), h)
+	}
+	if at("x") < 0 || at("y") < 0 || at("x")+at("width") > vb[2] || at("y")+at("height") > vb[3] {
+		t.Errorf("plot %v outside the viewBox %q", plot.Attr, svg.Attr["viewBox"])
+	}
+	if title := svg.all("title")[0].text(); svg.Attr["role"] != "img" || !strings.HasPrefix(title, "Sunrise and sunset at Driftwood Ice Camp") {
+		t.Errorf("role %q, title %q", svg.Attr["role"], title)
+	}
+	paths := map[string]string{}
+	for _, p := range svg.all("path") {
+		paths[p.Attr["class"]] = p.Attr["d"]
+	}
+	x := num(phone.Left + (78+0.5)*phone.dayStep(len(c.Days))) // 20 March, the 79th day
+	// Sunrise 05:55 and sunset 18:25 on 20 March (USNO, sun-0163/0164).
+	for class, h := range map[string]float64{"rise": 5 + 55.0/60, "set": 18 + 25.0/60} {
+		if p := x + "," + num(phone.yOf(h)); !strings.Contains(paths[class], p) {
+			t.Errorf("phone %s curve lacks the point %s", class, p)
+		}
+	}
+	lines := map[string]int{}
+	for _, l := range svg.all("line") {
+		lines[l.Attr["class"]]++
+	}
+	if lines["mark"] != 1 || lines["thr"] == 0 || lines["today"] != 1 {
+		t.Errorf("phone chart lines %v, want the equinox, the threshold crossings and today", lines)
+	}
+	for _, tx := range svg.all("text") {
+		if cl := tx.Attr["class"]; cl == "ml" || cl == "tl" || cl == "tdl" || len(tx.Children) > 0 {
+			t.Errorf("phone chart draws the label %q (class %q), which it has no room for", tx.text(), cl)
+		}
+	}
+	if !strings.Contains(string(page), "@media (max-width:28rem){svg.desk{display:none}svg.ph{display:block") {
+		t.Error("the page's style does not show the phone chart in place of the wide one on a phone")
+	}
+}
+
 // A clock time that passes midnight from one day to the next breaks the
 // curve instead of drawing a line across the plot.
 func TestCurveBreaksAtMidnight(t *testing.T) {
@@ -456,7 +550,7 @@ func TestCurveBreaksAtMidnight(t *testing.T) {
 		{Date: d0.AddDate(0, 0, 1), Set: 10 * time.Minute, HasSet: true},
 		{Date: d0.AddDate(0, 0, 2), Set: 20 * time.Minute, HasSet: true},
 	}
-	got := curve(days, func(d ChartDay) (time.Duration, bool) { return d.Set, d.HasSet })
+	got := desk.curve(days, func(d ChartDay) (time.Duration, bool) { return d.Set, d.HasSet })
 	if strings.Count(got, "M") != 2 || strings.Count(got, "L") != 1 {
 		t.Errorf("curve %q, want two pieces (M, then M L)", got)
 	}

@@ -674,3 +674,31 @@ func TestBrowserDatesWhole(t *testing.T) {
 		t.Errorf("the builder's preview at 320 px splits %d dates: %s", len(split), strings.Join(split, "; "))
 	}
 }
+
+// On a tablet and a desk the day-by-day table (/at) keeps its date column
+// as narrow as its dates and gives the events the rest of the width: the
+// column's heading was as wide as the events' (9rem each, the table's
+// spare width shared between them), which left the dates half the table at
+// 1280 px and wrapped the events into a column of its other half.
+func TestBrowserTableColumns(t *testing.T) {
+	ts := builderServer(t)
+	ctx := browser(t)
+	table := ts.URL + "/at?lat=-37.9&lon=145.1&tz=Australia/Melbourne&start=2026-12-05&days=7&name=Wirrabend%20paddock" +
+		"&kinds=civil-dawn,sunrise,sunset,civil-dusk,golden-hour,dark-window,lighting:15h"
+	for _, w := range []int64{1280, 768} {
+		if err := chromedp.Do(ctx, chromedp.EmulateViewport(w, 900), chromedp.Navigate(table), chromedp.WaitVisible(chromedp.CSS("table.days"))); err != nil {
+			t.Fatal(err)
+		}
+		cols, err := chromedp.Run(ctx, chromedp.Evaluate[[]float64](`[...document.querySelectorAll("table.days thead th")].map(th => th.getBoundingClientRect().width)`))
+		if err != nil {
+			t.Fatal(err)
+		}
+		rem, err := chromedp.Run(ctx, chromedp.Evaluate[float64](`parseFloat(getComputedStyle(document.documentElement).fontSize)`))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(cols) != 2 || cols[0] > 11*rem || cols[1] < 2*cols[0] {
+			t.Errorf("the table page at %d px: columns %v px wide, want the dates' at most %g (11rem) and the events' at least twice as wide", w, cols, 11*rem)
+		}
+	}
+}

@@ -174,6 +174,13 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-latitude-dms.yaml", "sites[0].latitude", `"47°30′N"`, "must be a number, not text", "decimal degrees, south negative", 0},
 		{"bad-timezone.yaml", "sites[0].timezone", "Europe/Zurik", "unknown time zone", `"Europe/Zurich"`, 0},
 		{"missing-latitude.yaml", "sites[0].latitude", "", "is required", "degrees", 0},
+		// written without a value: missing, not 0°
+		{"null-coordinates.yaml", "sites[0].latitude", "", "is required", "degrees", 2},
+		{"null-coordinates.yaml", "sites[0].longitude", "", "is required", "degrees", 2},
+		{"null-latitude.json", "sites[0].latitude", "", "is required", "degrees", 0},
+		{"bad-timezone-number.yaml", "sites[0].timezone", "2", "must be a time zone name, not a number", `"Europe/Vienna"`, 0},
+		{"bad-kind-number.yaml", "feeds[0].kinds[1]", "5", `must be a kind name or a mapping with a "kind" key, not a number`, "kind: sunrise", 0},
+		{"bad-days-huge.yaml", "feeds[0].days_ahead", "1e+20", "is far too large", "", 0},
 		{"unknown-kind.yaml", "feeds[0].kinds[0]", "sunrize", "unknown kind", `did you mean "sunrise"?`, 0},
 		{"unknown-kind-mapping.yaml", "feeds[0].kinds[1].kind", "moonrize", "unknown kind", `"moonrise"`, 0},
 		{"duplicate-site-id.yaml", "sites[1].id", "north-field", "duplicate site id, also that of sites[0]", "", 0},
@@ -385,6 +392,18 @@ feeds: [{id: f, site: a, kinds: [sunrise], days_back: 0}]
 	}
 	if c.Feeds[0].DaysBack != 0 || c.Feeds[0].DaysAhead != DefaultDaysAhead {
 		t.Errorf("days_back %d days_ahead %d, want 0 and %d", c.Feeds[0].DaysBack, c.Feeds[0].DaysAhead, DefaultDaysAhead)
+	}
+}
+
+// A window key written without a value ("days_ahead:") is not an
+// explicit 0: the feed keeps the default window.
+func TestEmptyWindowKeyIsDefault(t *testing.T) {
+	c, err := loadTestdata(t, "null-days.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if c.Feeds[0].DaysBack != DefaultDaysBack || c.Feeds[0].DaysAhead != DefaultDaysAhead {
+		t.Errorf("days_back %d days_ahead %d, want %d and %d", c.Feeds[0].DaysBack, c.Feeds[0].DaysAhead, DefaultDaysBack, DefaultDaysAhead)
 	}
 }
 
@@ -622,9 +641,11 @@ func TestLoadErrors(t *testing.T) {
 		t.Errorf("syntax error: %v", err)
 	}
 	for name, want := range map[string]string{
-		"syntax-error.yaml": "cannot read the file as yaml: yaml: line 3: did not find expected ',' or ']'",
-		"syntax-error.toml": "cannot read the file as toml: line 3, column",
-		"syntax-error.json": "cannot read the file as json: line 3: invalid character '}'",
+		"syntax-error.yaml":  "cannot read the file as yaml: yaml: line 3: did not find expected ',' or ']'",
+		"syntax-error.toml":  "cannot read the file as toml: line 3, column",
+		"syntax-error.json":  "cannot read the file as json: line 3: invalid character '}'",
+		"not-a-mapping.yaml": "cannot read the file as yaml: line 2: the document is a list, not a mapping of keys (a configuration starts with keys such as sites: and feeds:)",
+		"not-a-mapping.json": "cannot read the file as json: the document is a list, not a mapping of keys (a configuration starts with keys such as sites: and feeds:)",
 	} {
 		_, err = loadTestdata(t, name)
 		if !errors.Is(err, ErrUnreadable) || !strings.Contains(err.Error(), want) || !strings.HasPrefix(err.Error(), filepath.Join(testdata, name)+": ") {

@@ -12,8 +12,10 @@ import (
 	"os"
 	"path/filepath"
 	"reflect"
+	"regexp"
 	"strconv"
 	"strings"
+	"sync"
 	"time"
 
 	"github.com/go-viper/mapstructure/v2"
@@ -253,6 +255,9 @@ func syntaxMessage(err error, data []byte) string {
 		}
 	}
 	msg = strings.Join(lines, "; ")
+	if what, ok := topNotMapping(msg); ok {
+		return what + ", not a mapping of keys (a configuration starts with keys such as sites: and feeds:)"
+	}
 	var pos interface{ Position() (int, int) } // TOML decoder errors
 	var js *json.SyntaxError
 	switch {
@@ -268,6 +273,36 @@ func syntaxMessage(err error, data []byte) string {
 	}
 	return msg
 }
+
+// topNotMapping recognises the decoders' words for a document that is a
+// list, a text or a number rather than a mapping ("yaml: line 1: cannot
+// unmarshal !!seq into map[string]interface {}", "json: cannot unmarshal
+// array into Go value of type map[string]interface {}") and says what the
+// document is instead, with the line when the decoder gives one.
+func topNotMapping(msg string) (string, bool) {
+	m := topNotMappingRE().FindStringSubmatch(msg)
+	if m == nil {
+		return "", false
+	}
+	what := map[string]string{
+		"!!seq": "a list", "array": "a list",
+		"!!str": "text", "string": "text",
+		"!!int": "a number", "!!float": "a number", "number": "a number",
+		"!!bool": "true or false", "bool": "true or false",
+		"!!timestamp": "a date",
+	}[m[2]]
+	if what == "" {
+		what = m[2]
+	}
+	if m[1] != "" {
+		return "line " + m[1] + ": the document is " + what, true
+	}
+	return "the document is " + what, true
+}
+
+var topNotMappingRE = sync.OnceValue(func() *regexp.Regexp {
+	return regexp.MustCompile("^(?:yaml|json): (?:line ([0-9]+): )?cannot unmarshal (\\S+)(?: `[^`]*`)? into (?:Go value of type )?map\\[string\\]interface \\{\\}$")
+})
 
 // tomlValueAt names the unquoted value (a date, a time or a number) that
 // the TOML decoder refused at line row, column col of data, and the key it
@@ -448,7 +483,10 @@ func explicitWindows(raw any) map[int][2]bool {
 			continue
 		}
 		var set [2]bool
-		for k := range m {
+		for k, v := range m {
+			if v == nil { // "days_ahead:" with no value: the default, not 0
+				continue
+			}
 			switch strings.ToLower(k) {
 			case "days_back":
 				set[0] = true
@@ -475,7 +513,10 @@ func explicitCoordinates(raw any) [][2]bool {
 			out[i] = [2]bool{true, true} // not a mapping: the decoder says so
 			continue
 		}
-		for k := range m {
+		for k, v := range m {
+			if v == nil { // "latitude:" with no value is no latitude either
+				continue
+			}
 			switch strings.ToLower(k) {
 			case "latitude":
 				out[i][0] = true
@@ -648,6 +689,9 @@ func decodeHook() mapstructure.DecodeHookFunc {
 				}
 				return KindSpec{Kind: k}, nil
 			}
+			if notMapping(data) {
+				return nil, scalarTypeError(to, data, `e.g. sunrise, or a mapping such as {kind: sunrise, offset: -30m}`)
+			}
 		case kindType:
 			if s, ok := data.(string); ok {
 				k, err := ParseKind(s)
@@ -665,6 +709,9 @@ func decodeHook() mapstructure.DecodeHookFunc {
 					return nil, &valueError{Value: s, Msg: "unknown time zone", Hint: ze.Hint}
 				}
 				return z, nil
+			}
+			if notMapping(data) {
+				return nil, scalarTypeError(to, data, `an IANA name such as "Europe/Vienna"`)
 			}
 		case durationType:
 			switch x := data.(type) {
@@ -696,16 +743,41 @@ func decodeHook() mapstructure.DecodeHookFunc {
 		}
 		if to.Kind() == reflect.Int && (from.Kind() == reflect.Float64 || from.Kind() == reflect.Float32) {
 			f := reflect.ValueOf(data).Float()
-			if f != math.Trunc(f) || math.Abs(f) > 1<<53 {
+			if f != math.Trunc(f) {
 				hint := ""
 				if math.Abs(f) < 1e6 {
 					hint = fmt.Sprintf("write %g or %g", math.Floor(f), math.Ceil(f)) // 36 or 37 for 36.5
 				}
 				return nil, &valueError{Value: strconv.FormatFloat(f, 'g', -1, 64), Msg: "must be a whole number", Hint: hint}
 			}
+			if math.Abs(f) > 1<<53 { // a whole number, but past what is read exactly
+				return nil, &valueError{Value: strconv.FormatFloat(f, 'g', -1, 64), Msg: "is far too large"}
+			}
 		}
 		return data, nil
 	}
+}
+
+// notMapping reports whether data, decoded into a type that takes text or
+// a mapping (a zone, a kinds entry), is neither: a number, true or false, a
+// date, a list. The decoder would ask for a mapping of keys, which a zone
+// never is.
+func notMapping(data any) bool {
+	switch data.(type) {
+	case nil, string, map[string]any, map[any]any:
+		return false
+	}
+	return true
+}
+
+// scalarTypeError words a value of the wrong type for to, naming what to
+// takes.
+func scalarTypeError(to reflect.Type, data any, hint string) error {
+	value := showValue(data)
+	if t, ok := data.(time.Time); ok {
+		value = t.Format(time.DateOnly)
+	}
+	return &valueError{Value: value, Msg: "must be " + describeType(to) + ", not " + describeValue(data), Hint: hint}
 }
 
 func kindValueError(err error) error {
@@ -1176,6 +1248,9 @@ func LoadEnv(path string, env LookupEnv) (*Config, error) {
 	switch ext {
 	case ".yaml", ".yml", ".toml", ".json":
 	default:
+		if st, err := os.Stat(path); err == nil && st.IsDir() { // "--config /etc/heliocal"
+			return nil, fmt.Errorf("%s: is a directory, not a configuration file", path)
+		}
 		return nil, fmt.Errorf("%s: unknown file extension %q (use .yaml, .yml, .toml or .json)", path, ext)
 	}
 	f, err := os.Open(path)

@@ -235,6 +235,14 @@ func TestEventsBadInput(t *testing.T) {
 		{"config", []string{"check", "--config", filepath.Join("..", "..", "testdata", "config", "bad-latitude.yaml")}, "latitude"},
 		{"missing config", []string{"check", "--config", "nope.yaml"}, "heliocal: --config nope.yaml: no such file\n"},
 		{"config extension", []string{"check", "--config", "farm.ini"}, `heliocal: --config farm.ini: unknown file extension ".ini"`},
+		{"config directory", []string{"check", "--config", filepath.Join("..", "..", "testdata", "config")},
+			"heliocal: --config " + filepath.Join("..", "..", "testdata", "config") + ": is a directory, not a configuration file\n"},
+		// an empty value is refused, not taken for the flag left out: a
+		// script's --config "$CONF" with $CONF unset would check the demo
+		{"empty config", []string{"check", "--config", ""},
+			`heliocal: --config: "": empty (give a file, or drop the flag to read ./heliocal.yaml or the built-in demo)` + "\n"},
+		{"empty zone", []string{"events", "--lat", "0", "--lon", "0", "--tz", ""}, `heliocal: --tz: "": empty (give a value, or drop the flag for its default)` + "\n"},
+		{"empty date", []string{"events", "--lat", "0", "--lon", "0", "--from="}, `heliocal: --from: "": empty`},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			code, _, errOut := runCLI(t, tc.args...)
@@ -335,6 +343,21 @@ func TestPublishOutDirIsFile(t *testing.T) {
 	}
 	if b, err := os.ReadFile(file); err != nil || string(b) != "not a directory" {
 		t.Errorf("the file was touched: %q, %v", b, err)
+	}
+}
+
+// publish --out "" is refused before anything is written: it would
+// otherwise publish into service.out_dir (the demo into ./public here).
+func TestPublishEmptyOut(t *testing.T) {
+	dir := t.TempDir()
+	t.Chdir(dir)
+	code, _, errOut := runCLI(t, "publish", "--out", "")
+	want := `heliocal: --out: "": empty (give a directory, or drop the flag to use service.out_dir, public by default)` + "\n"
+	if code != exitInput || errOut != want {
+		t.Errorf("exit %d, %q; want %d and %q", code, errOut, exitInput, want)
+	}
+	if entries, _ := os.ReadDir(dir); len(entries) != 0 {
+		t.Errorf("a refused publish wrote %d files", len(entries))
 	}
 }
 

@@ -168,6 +168,7 @@ Configuration: --config FILE, else ./heliocal.yaml, else the built-in demo.` + e
 	installHelp(root, g)
 	root.PersistentFlags().StringVarP(&g.configPath, "config", "c", "", "configuration file (YAML, TOML or JSON); - reads it from standard input")
 	root.SetFlagErrorFunc(func(_ *cobra.Command, err error) error { return inputError{flagValueError(err)} })
+	root.PersistentPreRunE = func(cmd *cobra.Command, _ []string) error { return emptyFlags(cmd) }
 	root.CompletionOptions.DisableDefaultCmd = true
 	root.AddCommand(
 		newCompletionCommand(g),
@@ -232,6 +233,37 @@ func newCompletionCommand(g *globals) *cobra.Command {
 			return root.GenPowerShellCompletionWithDesc(g.stdout)
 		},
 	}
+}
+
+// emptyHints say what an empty value would have quietly stood for, where
+// that is far from what the user meant: a script's --config "$CONF" with
+// $CONF unset would read ./heliocal.yaml or the built-in demo, and its
+// --out "$DIR" would publish into the default directory.
+var emptyHints = map[string]string{
+	"config": "give a file, or drop the flag to read ./heliocal.yaml or the built-in demo",
+	"out":    "give a directory, or drop the flag to use service.out_dir, public by default",
+}
+
+// emptyFlags refuses a text flag given an empty value (--config "", --out=):
+// an empty value would stand for the flag left out, silently. The flags
+// that refuse it with their own words (--kinds, --format) do so later.
+func emptyFlags(cmd *cobra.Command) error {
+	var err error
+	cmd.Flags().Visit(func(f *pflag.Flag) {
+		if err != nil || f.Value.Type() != "string" || f.Value.String() != "" {
+			return
+		}
+		switch f.Name {
+		case "kinds", "format", "log-format":
+			return
+		}
+		hint := emptyHints[f.Name]
+		if hint == "" {
+			hint = "give a value, or drop the flag for its default"
+		}
+		err = badInput("--%s: \"\": empty (%s)", f.Name, hint)
+	})
+	return err
 }
 
 // flagValueError words a flag's value that does not parse as the flag and

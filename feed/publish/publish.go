@@ -248,8 +248,10 @@ func (w *Writer) checkMix(sets []*shardSet, digest string, sh Shard) error {
 // removeFiles removes the named files of w.Dir, durably.
 func (w *Writer) removeFiles(names []string) error {
 	for _, name := range names {
+		w.keep(name)
 		w.tell("remove " + name)
 		if err := os.Remove(filepath.Join(w.Dir, name)); err != nil && !errors.Is(err, fs.ErrNotExist) {
+			w.unkeep()
 			return fmt.Errorf("publish: %w", err)
 		}
 	}

@@ -141,12 +141,17 @@ func (w *Writer) stageFile(src Source, f File) (stagedFeed, error) {
 //
 // Each step is durable (directory fsync) before the next, so at every instant
 // every file feeds.json lists is on disk with the listed size and checksum.
-func (r *publishRun) commit(ctx context.Context) error {
+//
+// A commit that fails part-way (a file it cannot replace, a full disk)
+// puts back every file it changed, so the directory holds the publication
+// before it, whole (see Writer.keep).
+func (r *publishRun) commit(ctx context.Context) (err error) {
 	unlock, err := r.w.lockDir(ctx)
 	if err != nil {
 		return err
 	}
 	defer unlock()
+	r.w.removePrevs()
 	if err := r.restage(ctx); err != nil {
 		return err
 	}
@@ -157,6 +162,8 @@ func (r *publishRun) commit(ctx context.Context) error {
 	if err := r.w.checkMix(sets, r.digest, r.opts.Shard); err != nil {
 		return err
 	}
+	r.w.beginUndo()
+	defer func() { err = r.w.endUndo(err) }()
 	if err := r.retract(sets); err != nil {
 		return err
 	}

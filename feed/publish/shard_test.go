@@ -272,6 +272,10 @@ func mergeEdited(t *testing.T, edit func(m *manifestJSON)) error {
 	return publishShard(n - 1)
 }
 
+// putBack ends the error of a commit that failed after changing files: the
+// last shard's manifest and feeds are put back as they were.
+const putBack = "; nothing was changed: the files published before are as they were"
+
 // A shard manifest whose list of shortened feeds names a date that does not
 // exist or a feed the shard did not publish is refused when the last shard
 // merges the manifests, the error naming the manifest's shard, the field
@@ -283,9 +287,9 @@ func TestMergeRefusesBadTrimmed(t *testing.T) {
 		want string
 	}{
 		{"date", func(feeds []FeedInfo) manifestTrim { return manifestTrim{Feed: feeds[0].ID, To: "2027-02-30"} },
-			`publish: shard manifest of shard 0/3: trimmed[0].to: "2027-02-30" is not a date (YYYY-MM-DD)`},
+			`publish: shard manifest of shard 0/3: trimmed[0].to: "2027-02-30" is not a date (YYYY-MM-DD)` + putBack},
 		{"feed", func([]FeedInfo) manifestTrim { return manifestTrim{Feed: "no-such-feed", To: "2027-02-01"} },
-			`publish: shard manifest of shard 0/3: trimmed[0].feed: "no-such-feed" is not one of the shard's feeds`},
+			`publish: shard manifest of shard 0/3: trimmed[0].feed: "no-such-feed" is not one of the shard's feeds` + putBack},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			err := mergeEdited(t, func(m *manifestJSON) { m.Trimmed = []manifestTrim{tc.bad(m.Feeds)} })
@@ -305,7 +309,7 @@ func TestMergeRefusesBadSkyline(t *testing.T) {
 		site = m.Sites[0].ID
 		m.Sites[0].Skyline = &manifestSkyline{Low: 1, High: 8, Points: 0}
 	})
-	want := "publish: shard manifest of shard 0/3: site " + site + ": skyline.points: 0 is not a number of points"
+	want := "publish: shard manifest of shard 0/3: site " + site + ": skyline.points: 0 is not a number of points" + putBack
 	if err == nil || err.Error() != want {
 		t.Errorf("the last shard: %v, want %s", err, want)
 	}

@@ -79,6 +79,9 @@ type Writer struct {
 	step func(what string)
 	// now is the clock used to age leftovers; nil means time.Now.
 	now func() time.Time
+	// undo, while a commit changes the directory, records each change so
+	// that a commit failing part-way can put back what was there before.
+	undo *undoLog
 	// createdMode: the process's umask, as prepare found it, leaves
 	// FileMode as it is, so a temporary file created with it needs no
 	// chmod.
@@ -344,11 +347,142 @@ func (w *Writer) install(tmp, name string) error {
 	if _, err := sameRegularFile(final, nil); err != nil {
 		return err
 	}
+	w.keep(name)
 	w.tell("rename " + name)
 	if err := os.Rename(tmp, final); err != nil {
+		w.unkeep()
+		var le *os.LinkError
+		if errors.As(err, &le) { // not the temporary file's name: the file it would replace
+			return fmt.Errorf("publish: replace %s: %w", final, le.Err)
+		}
 		return fmt.Errorf("publish: write %s: %w", name, err)
 	}
 	return nil
+}
+
+// prevInfix marks a file's previous content kept by a commit until it
+// succeeds: "." + name + ".tmp-prev-" + digits. It is not one of
+// isTempName's names, which another run's start removes by their age (a
+// hard link has the age of the published file): under the lock, the next
+// commit removes any a killed one left (removePrevs).
+const prevInfix = ".tmp-prev-"
+
+// undoLog is what a commit has changed in the directory, in order.
+type undoLog struct {
+	steps []undoStep
+}
+
+// undoStep is one file a commit replaced, removed or created.
+type undoStep struct {
+	name    string // in Writer.Dir
+	existed bool   // the file was there before the change
+	prev    string // path of its previous content (a hard link to it); "" when it could not be kept
+}
+
+// keep records, before a commit replaces or removes the file name, what it
+// holds: a hard link to it under a prevInfix name, so that nothing is copied
+// and a failed commit can rename it back (endUndo). Where the file system
+// cannot link, the change is made all the same; putting back would stop at
+// that file.
+func (w *Writer) keep(name string) {
+	if w.undo == nil {
+		return
+	}
+	final := filepath.Join(w.Dir, name)
+	st := undoStep{name: name}
+	if _, err := os.Lstat(final); err == nil {
+		st.existed = true
+		w.tell("keep " + name)
+		for range 100 {
+			prev := filepath.Join(w.Dir, "."+name+prevInfix+strconv.FormatUint(uint64(rand.Uint32()), 10))
+			err := os.Link(final, prev)
+			if errors.Is(err, fs.ErrExist) {
+				continue
+			}
+			if err == nil {
+				st.prev = prev
+			}
+			break
+		}
+	}
+	w.undo.steps = append(w.undo.steps, st)
+}
+
+// unkeep forgets the change keep recorded last: it failed, the file is as
+// it was.
+func (w *Writer) unkeep() {
+	if w.undo == nil || len(w.undo.steps) == 0 {
+		return
+	}
+	last := w.undo.steps[len(w.undo.steps)-1]
+	if last.prev != "" {
+		os.Remove(last.prev)
+	}
+	w.undo.steps = w.undo.steps[:len(w.undo.steps)-1]
+}
+
+// beginUndo starts recording a commit's changes (see keep); endUndo ends
+// it: on success it removes the kept previous contents, on failure it puts
+// them back, last change first, removes the files the commit created, and
+// says so in the returned error.
+func (w *Writer) beginUndo() { w.undo = &undoLog{} }
+
+func (w *Writer) endUndo(err error) error {
+	u := w.undo
+	w.undo = nil
+	if u == nil {
+		return err
+	}
+	defer func() {
+		for _, st := range u.steps {
+			if st.prev != "" {
+				os.Remove(st.prev) // gone when renamed back; left when the change itself failed
+			}
+		}
+	}()
+	if err == nil {
+		return nil
+	}
+	// Last change first: each step back is to a state the commit passed
+	// through, in which feeds.json was true, so a step that fails stops the
+	// walk there rather than skip to one that would not be.
+	for i := len(u.steps) - 1; i >= 0; i-- {
+		st := u.steps[i]
+		final := filepath.Join(w.Dir, st.name)
+		var uerr error
+		switch {
+		case st.prev != "":
+			uerr = os.Rename(st.prev, final)
+		case !st.existed:
+			if uerr = os.Remove(final); errors.Is(uerr, fs.ErrNotExist) {
+				uerr = nil
+			}
+		default:
+			uerr = errors.New("its previous content could not be kept")
+		}
+		if uerr != nil {
+			syncDir(w.Dir)
+			return fmt.Errorf("%w; putting back the files published before stopped at %s: %w", err, st.name, uerr)
+		}
+	}
+	if serr := syncDir(w.Dir); serr != nil {
+		return fmt.Errorf("%w; the files published before are put back, but %w", err, serr)
+	}
+	return fmt.Errorf("%w; nothing was changed: the files published before are as they were", err)
+}
+
+// removePrevs removes the previous contents a killed commit kept (see
+// keep). Called under the directory's lock, when no commit is under way.
+func (w *Writer) removePrevs() {
+	ents, err := os.ReadDir(w.Dir)
+	if err != nil {
+		return
+	}
+	for _, e := range ents {
+		if n := e.Name(); e.Type().IsRegular() && strings.HasPrefix(n, ".") && strings.Contains(n, prevInfix) {
+			os.Remove(filepath.Join(w.Dir, n))
+		}
+	}
 }
 
 func (w *Writer) tell(what string) {
@@ -499,6 +633,9 @@ func (w *Writer) WriteBundle(ctx context.Context, b *Bundle) (st Stats, err erro
 		return st, err
 	}
 	defer unlock()
+	w.removePrevs()
+	w.beginUndo()
+	defer func() { err = w.endUndo(err) }()
 	if err := w.retractFeeds(changedIDs(staged)); err != nil {
 		return st, err
 	}

@@ -169,6 +169,22 @@ const indexReadability = `(() => {
     const key = fig.querySelector("figcaption svg.swatch rect");
     if (!key || ref(getComputedStyle(key).fill) !== id) out.push(name + ": the caption's key of dark windows is " + (key ? getComputedStyle(key).fill : "missing") + ", the chart draws them with #" + id);
   }
+  // The caption's keys of the new and the full Moon are drawn as the
+  // chart draws them: a circle of the same fill, outlined 3:1 against the
+  // page (WCAG 2.1 SC 1.4.11), not a yellow glyph of 1.6:1.
+  for (const fig of document.querySelectorAll("figure")) {
+    const name = fig.querySelector("title").textContent.split(",")[0];
+    for (const cls of ["moon", "moon full"]) {
+      const of = (sel) => [...fig.querySelectorAll(sel + " circle")].find(c => c.getAttribute("class") === cls);
+      const mark = of(":scope > svg"), key = of("figcaption");
+      if (!mark) continue;
+      if (!key) { out.push(name + ": the caption has no key drawn as the chart's " + cls + " symbols"); continue; }
+      const m = getComputedStyle(mark), k = getComputedStyle(key);
+      if (m.fill !== k.fill) out.push(name + ": the key of the " + cls + " is filled " + k.fill + ", the chart fills it " + m.fill);
+      const c = ratio(rgb(k.stroke), page);
+      if (c < 3) out.push(name + ": the key of the " + cls + " is outlined " + c.toFixed(2) + ":1 against the page, need 3");
+    }
+  }
   if (ratio(ink, [255, 255, 255]) < 4.5) out.push("text " + getComputedStyle(document.body).color + " is " + ratio(ink, [255, 255, 255]).toFixed(2) + ":1 against white paper");
   return out;
 })()`
@@ -177,7 +193,7 @@ const indexReadability = `(() => {
 // in the light and the dark palette: subscribe links break only after a dash,
 // the charts' threshold labels reach 4.5:1 (WCAG 2.1 SC 1.4.3) on a halo of
 // the page colour, each key of a chart's caption has the colour of the
-// mark it names, and the dark windows are hatched (in the caption's key too)
+// mark it names (the Moons' keys are drawn as the chart's Moons, outlined), and the dark windows are hatched (in the caption's key too)
 // where the lamp periods are flat; printed, from a system in dark mode too, its text is dark
 // on the white paper, and a site's heading stays with its chart.
 func TestBrowserPublishedIndexReadable(t *testing.T) {

@@ -297,7 +297,7 @@ svg .tl{fill:#287a36;stroke:#fbfaf6;stroke-width:3px;stroke-linejoin:round;paint
 .moon{stroke:currentColor;stroke-width:1;fill:none}
 .moon.full{fill:#e8c547}
 .key{display:inline-block;width:1.4em;height:0;vertical-align:.3em;margin:0 .25em 0 .6em;border-top:3px solid}
-.key.rise{border-color:#c86a14}.key.set{border-color:#5b4bb7}.key.lamp{border-top-width:.8em;vertical-align:-.1em;border-color:#1f9e8973}svg.swatch{display:inline-block;width:1.4em;height:.8em;vertical-align:-.1em;margin:0 .25em 0 .6em}.key.thr{border-top:2px dashed #287a36}.key.mark{border-top:2px solid #c0392b}.key.today{border-top:2px solid currentColor}
+.key.rise{border-color:#c86a14}.key.set{border-color:#5b4bb7}.key.lamp{border-top-width:.8em;vertical-align:-.1em;border-color:#1f9e8973}svg.swatch{display:inline-block;width:1.4em;height:.8em;vertical-align:-.1em;margin:0 .25em 0 .6em}svg.moonkey{width:.8em;margin-left:.3em}.key.thr{border-top:2px dashed #287a36}.key.mark{border-top:2px solid #c0392b}.key.today{border-top:2px solid currentColor}
 @media (max-width:40rem){body{padding:.6rem}svg text{font-size:18px}svg .ml,svg .tl,svg .tdl,svg .short,svg .mm{display:none}svg .yl{dominant-baseline:central}svg .mo{transform:translateY(11px)}table,tbody,tr,td{display:block}thead{display:none}tr{border-bottom:1px solid #e4e2dc;padding:.4rem 0}td{border:0;padding:.1rem 0}td.num{display:inline-block;margin-right:1rem}.unit{display:inline}}
 @media (max-width:28rem){svg.desk{display:none}svg.ph{display:block;width:100%}svg.ph text{font-size:12px}svg.ph .mo{transform:none}}
 @media (max-width:22.5rem){svg.ph text{font-size:13px}svg.ph .alt{display:none}}
@@ -328,7 +328,9 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{
 <span class="key lamp"></span>lamp periods{{end}}{{if .Dark}},
 <svg class="swatch" viewBox="0 0 22 12" width="22" height="12" aria-hidden="true"><rect class="dark" width="22" height="12" fill="url(#{{.ID}}-hatch)"/><defs><pattern id="{{.ID}}-hatch" class="hatch" width="6" height="6" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><rect width="6" height="6"/><line x1="3" y1="0" x2="3" y2="6"/></pattern></defs></svg>dark windows (hatched){{end}}{{if .Thresholds}},
 <span class="key thr"></span>photoperiod threshold crossings{{end}}{{if .Today}},
-<span class="key today"></span>today{{if ne .Today.PastW "0"}} (the weeks before it shaded){{end}}{{end}}; along the top, ○ new and <span style="color:#e8c547">●</span> full Moon.{{if .Marks}} <span class="key mark"></span>Red lines:{{range $i, $m := .Marks}}{{if $i}};{{end}} {{$m.Label}} ({{$m.Date}}){{end}}.{{end}}{{with .Held}} {{.}}{{end}}</figcaption>
+<span class="key today"></span>today{{if ne .Today.PastW "0"}} (the weeks before it shaded){{end}}{{end}}; along the top,
+<svg class="swatch moonkey" viewBox="0 0 10 10" width="10" height="10" aria-hidden="true"><circle class="moon" cx="5" cy="5" r="3.5"/></svg>new and
+<svg class="swatch moonkey" viewBox="0 0 10 10" width="10" height="10" aria-hidden="true"><circle class="moon full" cx="5" cy="5" r="3.5"/></svg>full Moon.{{if .Marks}} <span class="key mark"></span>Red lines:{{range $i, $m := .Marks}}{{if $i}};{{end}} {{$m.Label}} ({{$m.Date}}){{end}}.{{end}}{{with .Held}} {{.}}{{end}}</figcaption>
 </figure>
 {{end}}<table>
 <thead><tr><th>Feed</th><th class="num">Events</th><th class="num">Size</th><th>Subscribe</th></tr></thead>

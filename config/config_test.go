@@ -254,7 +254,7 @@ func TestValidationErrors(t *testing.T) {
 		// a misspelt full name gets the full name it is nearest to
 		{"bad-weekday-full.yaml", "feeds[0].kinds[0].weekdays[1]", "wednesdy", "not a day of the week", `did you mean "wednesday"?`, 0},
 		{"bad-month-full.yaml", "feeds[0].plans[0].months[1]", "febuary", "not a month", `did you mean "february"?`, 0},
-		{"bad-kind-alarm.yaml", "feeds[0].kinds[0].alarm", "-10m", "must not be negative", "", 0},
+		{"bad-kind-alarm.yaml", "feeds[0].kinds[0].alarm", "-10m", "must not be negative", `"0s" for no reminder`, 0},
 		{"bad-plan-date.yaml", "feeds[0].plans[0].date", "every fortnight", "is not a weekday", "every friday", 0},
 		{"bad-plan-date-day.yaml", "feeds[0].plans[0].date", "every 02-30", `"02-30" is not a date of the year`, "every 02-29", 0},
 		{"plan-date-daily-kind.yaml", "feeds[0].plans[0].date", "saturday nearest sunset", "happens every day", "full-moon", 0},

@@ -619,12 +619,16 @@ const msgNeedsStart = "needs a start: a plan without start is all-day"
 // spanLimit bounds min_duration and a plan's length.
 const spanLimit = 24 * time.Hour
 
-func checkAlarm(ps *problems, path string, a *Duration) {
-	if a == nil {
-		return
-	}
+// checkAlarm checks an alarm at path: a feed's (override false), or a kinds
+// entry's or a plan's that replaces it (override true: "0s" turns the
+// feed's reminder off there, which the hint says).
+func checkAlarm(ps *problems, path string, a Duration, override bool) {
 	if d := a.D(); d < 0 {
-		ps.add(path, a.String(), "must not be negative: it is the time before each event", `e.g. "15m" for 15 minutes before, "0s" for no reminder`)
+		hint := `e.g. "15m" for 15 minutes before`
+		if override {
+			hint += `, "0s" for no reminder`
+		}
+		ps.add(path, a.String(), "must not be negative: it is the time before each event", hint)
 	} else if d > MaxAlarm {
 		ps.add(path, a.String(), "must be at most 7 days, 168h", `e.g. "15m" or "1h"`)
 	}
@@ -691,7 +695,9 @@ func nearName(v string, short, full []string) string {
 // validateOptions checks the per-entry options of a kinds entry: alarm,
 // min_duration, weekdays, months, dates and the lighting options.
 func (ks *KindSpec) validateOptions(ps *problems, p string) {
-	checkAlarm(ps, p+".alarm", ks.Alarm)
+	if ks.Alarm != nil {
+		checkAlarm(ps, p+".alarm", *ks.Alarm, true)
+	}
 	if md := ks.MinDuration.D(); md < 0 || md > spanLimit {
 		ps.add(p+".min_duration", ks.MinDuration.String(), "must be within 0..24h", `e.g. "45m"`)
 	} else if md != 0 && !ks.Kind.IsSpan() {
@@ -765,7 +771,9 @@ func (pl *Plan) validate(ps *problems, p string) {
 		}
 	}
 	checkFilter(ps, p, pl.Weekdays, pl.Months, nil)
-	checkAlarm(ps, p+".alarm", pl.Alarm)
+	if pl.Alarm != nil {
+		checkAlarm(ps, p+".alarm", *pl.Alarm, true)
+	}
 }
 
 func firstNonEmpty(a, b string) string {

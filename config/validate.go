@@ -546,11 +546,7 @@ func (f *Feed) validate(ps *problems, p string) {
 		}
 		ps.add(p+".color", f.Color, "not a CSS3 colour name", hint)
 	}
-	if a := f.Alarm.D(); a < 0 {
-		ps.add(p+".alarm", f.Alarm.String(), "must not be negative: it is the time before each event", `e.g. "15m" for 15 minutes before`)
-	} else if a > MaxAlarm {
-		ps.add(p+".alarm", f.Alarm.String(), "must be at most 7 days, 168h", `e.g. "15m" or "1h"`)
-	}
+	checkAlarm(ps, p+".alarm", f.Alarm, false)
 }
 
 // OffsetProblem says why offset o cannot shift the events of kind k (a

@@ -46,24 +46,16 @@ func (s *Site) resolveHorizon(path, dir string) []FieldError {
 			return []FieldError{{Path: path, Value: v, Msg: err.Error(), Hint: hint}}
 		}
 		s.HorizonFile = name
-		ps := bad
-		for i := range ps {
-			ps[i].Path, ps[i].Value, ps[i].Hint = path, v, hint
-		}
-		if len(pts) == 0 && len(bad) > 0 {
-			return inOrder(ps) // no point to check, and not an empty file
+		for i := range bad {
+			bad[i].Path, bad[i].Hint = path, hint
 		}
 		// a bad point is named by the file and its line, not its index
-		more := s.setSkyline(path, pts, lines, func(j int) string { return fmt.Sprintf("line %d", lines[j]) }, nil)
-		for i := range more {
-			if more[i].Path != path {
-				more[i].Msg = more[i].Path + ": " + more[i].Value + ": " + more[i].Msg
+		ps := s.setSkyline(path, pts, lines, func(line int) string { return fmt.Sprintf("line %d", line) }, nil, bad)
+		for i := range ps {
+			if ps[i].Path != path {
+				ps[i].Msg = ps[i].Path + ": " + ps[i].Value + ": " + ps[i].Msg
 			}
-			more[i].Path, more[i].Value = path, v
-		}
-		ps = append(ps, more...)
-		if len(ps) > 0 {
-			s.Skyline = nil
+			ps[i].Path, ps[i].Value = path, v
 		}
 		return inOrder(ps)
 	case []any:
@@ -79,14 +71,7 @@ func (s *Site) resolveHorizon(path, dir string) []FieldError {
 			}
 			pts, at = append(pts, p), append(at, j)
 		}
-		if len(pts) == 0 && len(ps) > 0 {
-			return inOrder(ps)
-		}
-		ps = append(ps, s.setSkyline(path, pts, at, func(j int) string { return fmt.Sprintf("%s[%d]", path, at[j]) }, nil)...)
-		if len(ps) > 0 {
-			s.Skyline = nil
-		}
-		return inOrder(ps)
+		return inOrder(s.setSkyline(path, pts, at, func(i int) string { return fmt.Sprintf("%s[%d]", path, i) }, nil, ps))
 	}
 	return []FieldError{{Path: path, Value: showValue(s.HorizonValue), Msg: "must be a number, a list of [azimuth, altitude] points or a CSV file name",
 		Hint: "e.g. horizon: 1.5, or horizon: [[0, 2.5], [90, 8]]"}}
@@ -145,29 +130,33 @@ func inOrder(ps []pointProblem) []FieldError {
 }
 
 // setSkyline checks the points (azimuth 0..360, 360 being 0, distinct;
-// altitude within MinHorizon..MaxHorizon), sorts them and sets Skyline. The
-// problem of the point j is at places[j], its place in what the user wrote
-// (its index in a list, its line in a file), or at j without places; its
-// path is path[j], or, with name, name(j) ("line 4" of a file), and its
-// value the point as "[azimuth, altitude]", or, with show, show(j) (the
-// point as the user wrote it).
-func (s *Site) setSkyline(path string, pts [][2]float64, places []int, name, show func(j int) string) []pointProblem {
+// altitude within MinHorizon..MaxHorizon) and returns their problems after
+// found, those already found reading them (points that are not two
+// numbers). Without any it sorts the points and sets Skyline, with some it
+// clears Skyline. No point and some found is no skyline to check, not an
+// empty one. The problem of the point j is at its place, places[j] (its
+// index in a list, its line in a file), or j without places; its path is
+// name(place) ("line 4" of a file), and its value the point as "[azimuth,
+// altitude]", or, with show, show(j) (the point as the user wrote it).
+func (s *Site) setSkyline(path string, pts [][2]float64, places []int, name func(place int) string, show func(j int) string, found []pointProblem) []pointProblem {
 	if len(pts) == 0 {
+		s.Skyline = nil
+		if len(found) > 0 {
+			return found
+		}
 		return []pointProblem{{at: -1, FieldError: FieldError{Path: path, Value: "[]", Msg: "an empty skyline", Hint: "give at least one [azimuth, altitude] point, or a number"}}}
 	}
-	pointAt := func(j int) string {
-		if name != nil {
-			return name(j)
+	placeOf := func(j int) int {
+		if places != nil {
+			return places[j]
 		}
-		return fmt.Sprintf("%s[%d]", path, j)
+		return j
 	}
 	seen := map[float64]int{}
-	var ps []pointProblem
+	ps := found
 	for j, p := range pts {
-		at, value, place := pointAt(j), "", j
-		if places != nil {
-			place = places[j]
-		}
+		place, value := placeOf(j), ""
+		at := name(place)
 		if show != nil {
 			value = show(j)
 		} else {
@@ -186,13 +175,14 @@ func (s *Site) setSkyline(path string, pts [][2]float64, places []int, name, sho
 			az = 0
 		}
 		if k, dup := seen[az]; dup {
-			ps = append(ps, pointProblem{place, FieldError{Path: at, Value: value, Msg: fmt.Sprintf("azimuth %s given twice, also at %s: 0 and 360 are the same", ftoa(az), pointAt(k)), Hint: "one altitude per direction"}})
+			ps = append(ps, pointProblem{place, FieldError{Path: at, Value: value, Msg: fmt.Sprintf("azimuth %s given twice, also at %s: 0 and 360 are the same", ftoa(az), name(placeOf(k))), Hint: "one altitude per direction"}})
 			continue
 		}
 		seen[az] = j
 		pts[j][0] = az
 	}
 	if len(ps) > 0 {
+		s.Skyline = nil
 		return ps
 	}
 	sort.Slice(pts, func(i, j int) bool { return pts[i][0] < pts[j][0] })
@@ -333,7 +323,7 @@ func SkylineFromText(flag, v string, round func(float64) float64) ([][2]float64,
 		return nil, oneProblem(bad)
 	}
 	var s Site
-	if ps := inOrder(s.setSkyline(flag, pts, nil, point, written)); len(ps) > 0 {
+	if ps := inOrder(s.setSkyline(flag, pts, nil, point, written, nil)); len(ps) > 0 {
 		for i := range ps {
 			if ps[i].Path != flag { // a point's problem
 				ps[i].Msg = ps[i].Path + " (" + ps[i].Value + "): " + ps[i].Msg

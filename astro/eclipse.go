@@ -125,20 +125,6 @@ func syzygies(from, to time.Time, kind PhaseKind) ([]float64, error) {
 	return out, nil
 }
 
-func maxTime(a, b time.Time) time.Time {
-	if a.After(b) {
-		return a
-	}
-	return b
-}
-
-func minTime(a, b time.Time) time.Time {
-	if a.Before(b) {
-		return a
-	}
-	return b
-}
-
 // minimize returns the argument of the least value of f on [a, b], f being
 // unimodal there: golden-section search to tol seconds.
 func minimize(f func(float64) float64, a, b, tol float64) float64 {

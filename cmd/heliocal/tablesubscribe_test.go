@@ -23,7 +23,8 @@ func TestTableSubscribesAsPreview(t *testing.T) {
 	q := "lat=-33.45&lon=-70.6667&tz=America/Santiago&kinds=civil-dawn,sunrise,sunset,civil-dusk,golden-hour&start=2026-06-21"
 	var res struct {
 		HTTPS         string
-		SubscribeDays int `json:"subscribe_days"`
+		SubscribeDays int    `json:"subscribe_days"`
+		SubscribeNote string `json:"subscribe_note"`
 	}
 	if err := json.Unmarshal([]byte(getOK(t, ts.URL+"/at.json?"+q)), &res); err != nil {
 		t.Fatal(err)
@@ -42,8 +43,13 @@ func TestTableSubscribesAsPreview(t *testing.T) {
 	if code, body := status(t, html.UnescapeString(m[1])); code != http.StatusOK || !strings.HasPrefix(body, "BEGIN:VCALENDAR") {
 		t.Errorf("the table's calendar address answers %d: %.200s", code, body)
 	}
-	if want := "The calendar always covers the next " + strconv.Itoa(res.SubscribeDays) + " days (a year of these events would be too large for some calendar apps)."; !strings.Contains(page, want) {
+	// the builder's script shows the preview's subscribe_note as it is
+	want := "The calendar always covers the next " + strconv.Itoa(res.SubscribeDays) + " days (a year of these events would be too large for some calendar apps)."
+	if !strings.Contains(page, `<p class="help">`+want+`</p>`) {
 		t.Errorf("the table page does not say %q", want)
+	}
+	if res.SubscribeNote != want {
+		t.Errorf("the preview's subscribe_note is %q, want %q as the table says it", res.SubscribeNote, want)
 	}
 }
 

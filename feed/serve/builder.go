@@ -229,8 +229,24 @@ type previewResult struct {
 	QR        string `json:"qr"` // a data: URL of an SVG image of Page
 	// SubscribeDays is the window of the subscription, from the day of
 	// each refresh: fewer than the default when a year would be too large.
-	SubscribeDays int          `json:"subscribe_days"`
+	SubscribeDays int `json:"subscribe_days"`
+	// SubscribeNote says that window to people (subscribeNote), as the
+	// table at TablePath says it; "" without ad-hoc feeds.
+	SubscribeNote string       `json:"subscribe_note"`
 	Days          []previewDay `json:"days"`
+}
+
+// subscribeNote is the line under the subscribe links of the builder and
+// the table: how many days the calendar always covers, and why fewer than a
+// year; "" for days 0 (no ad-hoc feeds).
+func subscribeNote(days int) string {
+	switch {
+	case days <= 0:
+		return ""
+	case days < 365:
+		return "The calendar always covers the next " + strconv.Itoa(days) + " days (a year of these events would be too large for some calendar apps)."
+	}
+	return "The calendar always covers the next " + strconv.Itoa(days) + " days."
 }
 
 // subscribeDays is the window of q's subscription: the default ad-hoc
@@ -451,7 +467,7 @@ func (s *Server) servePreview(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	https, page := s.links(r, q, start, subDays, previewDays)
-	res := previewResult{SubscribeDays: subDays, Zone: q.Location.String(), ZoneFound: q.ZoneFound, Name: cal.Site.Name, Title: cal.Title,
+	res := previewResult{SubscribeDays: subDays, SubscribeNote: subscribeNote(subDays), Zone: q.Location.String(), ZoneFound: q.ZoneFound, Name: cal.Site.Name, Title: cal.Title,
 		HTTPS: https, Webcal: webcal(https), Page: page, QR: qrDataURL(page), Days: days(cal, q)}
 	body, err := json.Marshal(res)
 	if err != nil {
@@ -708,9 +724,9 @@ type tableView struct {
 	// https and mailto through), leaving the button dead.
 	Webcal   template.URL
 	Link, QR template.URL
-	// SubscribeDays is the subscription's window, as the builder's
-	// preview gives it (see subscribeDays); 0 without ad-hoc feeds.
-	SubscribeDays int
+	// SubscribeNote says the subscription's window, as the builder's
+	// preview says it (subscribeNote); "" without ad-hoc feeds.
+	SubscribeNote string
 	Days          []previewDay
 	From, To      string
 	Builder       bool
@@ -740,7 +756,7 @@ func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
 	}
 	v := tableView{Page: s.page(), Title: cal.Title, Zone: q.Location.String(),
 		Coords: place + q.horizonWords(),
-		HTTPS:  https, Webcal: template.URL(webcal(https)), Link: template.URL(page), QR: template.URL(qrDataURL(page)), SubscribeDays: subDays,
+		HTTPS:  https, Webcal: template.URL(webcal(https)), Link: template.URL(page), QR: template.URL(qrDataURL(page)), SubscribeNote: subscribeNote(subDays),
 		Days: days(cal, q), From: q.Start.Format(time.DateOnly), To: q.Start.AddDate(0, 0, q.Days-1).Format(time.DateOnly),
 		Builder: !s.page().NoBuilder, Legal: slices.ContainsFunc(q.Kinds, LegalKind)}
 	s.render(w, r, "table.html", v)

@@ -100,10 +100,7 @@ function render(res) {
   // the days are those from the date chosen ("Preview from"), the next
   // ones or not
   if (res.days.length) $("days-h").textContent = "Seven days from " + res.days[0].weekday + " " + res.days[0].date;
-  $("span-note").textContent = res.subscribe_days
-    ? "The calendar always covers the next " + res.subscribe_days + " days" +
-      (res.subscribe_days < 365 ? " (a year of these events would be too large for some calendar apps)." : ".")
-    : "";
+  $("span-note").textContent = res.subscribe_note;
   const box = $("preview");
   box.textContent = "";
   const table = document.createElement("table");

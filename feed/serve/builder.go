@@ -265,17 +265,18 @@ func (s *Server) subscribeDays(ctx context.Context, q AdhocQuery, lamps *yearLam
 // subscription gives the window of q's subscribe link, as the preview and the
 // table give it (subscribeDays; 0 without ad-hoc feeds), and words cal's
 // "no lamps needed" notes as that feed does (lampNotesAsFed). It reports
-// false when it failed, answered by fail.
-func (s *Server) subscription(w http.ResponseWriter, r *http.Request, q AdhocQuery, cal *feed.Calendar, fail failFunc) (int, bool) {
+// false when it failed, answered by fail as computeFailed does for the
+// page that computes what ("the table").
+func (s *Server) subscription(w http.ResponseWriter, r *http.Request, q AdhocQuery, cal *feed.Calendar, fail failFunc, what string) (int, bool) {
 	subDays := 0
 	var lamps yearLamps
 	if s.opts.Adhoc != nil {
 		var err error
-		if subDays, err = s.subscribeDays(r.Context(), q, &lamps); s.computeFailed(w, q, err, fail) {
+		if subDays, err = s.subscribeDays(r.Context(), q, &lamps); s.computeFailed(w, q, err, fail, what) {
 			return 0, false
 		}
 	}
-	if err := s.lampNotesAsFed(r.Context(), q, subDays, &lamps, cal); s.computeFailed(w, q, err, fail) {
+	if err := s.lampNotesAsFed(r.Context(), q, subDays, &lamps, cal); s.computeFailed(w, q, err, fail, what) {
 		return 0, false
 	}
 	return subDays, true
@@ -458,11 +459,11 @@ func (s *Server) links(r *http.Request, q AdhocQuery, start string, days, pageDa
 }
 
 func (s *Server) servePreview(w http.ResponseWriter, r *http.Request) {
-	q, cal, start, ok := s.previewCalendar(w, r, previewDays, plain)
+	q, cal, start, ok := s.previewCalendar(w, r, previewDays, plain, "the preview")
 	if !ok {
 		return
 	}
-	subDays, ok := s.subscription(w, r, q, cal, plain)
+	subDays, ok := s.subscription(w, r, q, cal, plain, "the preview")
 	if !ok {
 		return
 	}
@@ -540,15 +541,16 @@ func (s *Server) lampNotesAsFed(ctx context.Context, q AdhocQuery, feedDays int,
 // previewCalendar reads a preview or table query of at most maxDays days and
 // computes its calendar; start is the query's own start date ("" when it
 // gave none). It answers the request itself and reports false when the query
-// is bad or the computation fails.
-func (s *Server) previewCalendar(w http.ResponseWriter, r *http.Request, maxDays int, fail failFunc) (q AdhocQuery, cal *feed.Calendar, start string, ok bool) {
+// is bad or the computation fails (computeFailed, for the page that computes
+// what).
+func (s *Server) previewCalendar(w http.ResponseWriter, r *http.Request, maxDays int, fail failFunc, what string) (q AdhocQuery, cal *feed.Calendar, start string, ok bool) {
 	q, hasStart, err := s.previewQuery(r, previewDays, maxDays)
 	if err != nil {
 		fail(w, http.StatusBadRequest, err.Error())
 		return q, nil, "", false
 	}
 	cal, err = s.compute(r.Context(), q)
-	if s.computeFailed(w, q, err, fail) {
+	if s.computeFailed(w, q, err, fail, what) {
 		return q, nil, "", false
 	}
 	if hasStart {
@@ -562,8 +564,10 @@ func (s *Server) previewCalendar(w http.ResponseWriter, r *http.Request, maxDays
 // the table /at that people open from a shared link.
 type failFunc func(w http.ResponseWriter, code int, msg string)
 
-// computeFailed answers a failed computation and reports whether it did.
-func (s *Server) computeFailed(w http.ResponseWriter, q AdhocQuery, err error, fail failFunc) bool {
+// computeFailed answers a failed computation of the page that computes
+// what ("the preview", "the table") and reports whether it did: an
+// internal error's message names what failed.
+func (s *Server) computeFailed(w http.ResponseWriter, q AdhocQuery, err error, fail failFunc, what string) bool {
 	var qe *QueryError
 	switch {
 	case err == nil:
@@ -574,8 +578,8 @@ func (s *Server) computeFailed(w http.ResponseWriter, q AdhocQuery, err error, f
 		w.Header()["Retry-After"] = hdrRetryAfter
 		fail(w, http.StatusServiceUnavailable, "server busy; try again shortly")
 	default:
-		s.log.Error("preview failed", "query", q.String(), "err", err)
-		fail(w, http.StatusInternalServerError, "internal error computing the preview")
+		s.log.Error(strings.TrimPrefix(what, "the ")+" failed", "query", q.String(), "err", err)
+		fail(w, http.StatusInternalServerError, "internal error computing "+what)
 	}
 	return true
 }
@@ -735,7 +739,7 @@ type tableView struct {
 
 func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
 	fail := s.tableFailed(r)
-	q, cal, start, ok := s.previewCalendar(w, r, maxTable, fail)
+	q, cal, start, ok := s.previewCalendar(w, r, maxTable, fail, "the table")
 	if !ok {
 		return
 	}
@@ -743,7 +747,7 @@ func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
 	// without them a year over the size limit would be refused; a "no
 	// lamps needed" note says until when as that feed does, not through
 	// the table's last date
-	subDays, ok := s.subscription(w, r, q, cal, fail)
+	subDays, ok := s.subscription(w, r, q, cal, fail, "the table")
 	if !ok {
 		return
 	}

@@ -4,6 +4,7 @@ import (
 	"context"
 	"encoding/base64"
 	"encoding/json"
+	"errors"
 	"net/http"
 	"strings"
 	"testing"
@@ -288,6 +289,27 @@ func TestTableErrorPage(t *testing.T) {
 		if b := body(t, r); r.StatusCode != 400 || !strings.HasPrefix(r.Header.Get("Content-Type"), "text/plain") || !strings.HasPrefix(b, "serve: parameter ") {
 			t.Errorf("/at.json?%s: %d %q %q, want 400 and the plain message", tc.query, r.StatusCode, r.Header.Get("Content-Type"), b)
 		}
+	}
+}
+
+// A table whose computation fails for a reason of the server's own says
+// that computing the table failed (with status 500), not the preview; the
+// builder's preview /at.json says the preview.
+func TestTableInternalErrorNamesTable(t *testing.T) {
+	failing := func(context.Context, AdhocQuery) (*feed.Calendar, error) {
+		return nil, errors.New("ephemeris out of order")
+	}
+	s, _ := newTestServer(t, Options{Adhoc: adhocICS, Preview: failing})
+	s.now = func() time.Time { return today }
+	h := s.Handler()
+	const q = "lat=47.8&lon=13.05&kinds=sunrise"
+	r := get(t, h, "GET", "/at?"+q)
+	if b := body(t, r); r.StatusCode != 500 || !strings.Contains(b, `<p class="message">internal error computing the table`) || strings.Contains(b, "preview") {
+		t.Errorf("/at?%s: %d, want 500 and a page saying the table failed:\n%s", q, r.StatusCode, b)
+	}
+	r = get(t, h, "GET", "/at.json?"+q)
+	if b := body(t, r); r.StatusCode != 500 || strings.TrimSpace(b) != "internal error computing the preview" {
+		t.Errorf("/at.json?%s: %d %q, want 500 and the preview's message", q, r.StatusCode, b)
 	}
 }
 

@@ -209,7 +209,7 @@ func TestServeRefusesOversizeFeed(t *testing.T) {
 	}
 	waitFor(t, logs, "the refused reload", func() bool { _, b := health(); return strings.Contains(b, "failed to build") })
 	code, body := health()
-	if code != http.StatusOK || !strings.Contains(body, refused) || !strings.Contains(body, over) || strings.Count(body, "fail") != 1 {
+	if code != http.StatusOK || !strings.Contains(body, refused) || !strings.Contains(body, over) || strings.Count(body, "failed to build") != 1 {
 		t.Errorf("/healthz after the refused reload: %d %s", code, body)
 	}
 	// one line of error for one reload, saying what happened

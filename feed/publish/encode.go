@@ -79,16 +79,20 @@ type OversizeError struct {
 	TrimmedTo, Today time.Time
 }
 
+// Error words the refusal as check, publish and serve say it (check names
+// the feed before it, OversizeRefusal): the size over the limit, that
+// publish and serve refuse the feed under service.oversize and why, and
+// what to change.
 func (e *OversizeError) Error() string {
 	size, limit := FormatBytesOver(int64(e.Bytes), int64(e.Limit))
 	switch {
 	case !e.TrimmedTo.IsZero():
-		return fmt.Sprintf("%s, over service.max_feed_bytes (%s): service.oversize: trim would shorten it to %s, before today at its site (%s), leaving past days alone; lower days_back or raise service.max_feed_bytes",
+		return fmt.Sprintf("%s, over service.max_feed_bytes (%s): publish and serve refuse it (service.oversize: trim would shorten it to %s, before today at its site (%s), leaving past days alone); lower days_back or raise service.max_feed_bytes",
 			size, limit, e.TrimmedTo.Format(time.DateOnly), e.Today.Format(time.DateOnly))
 	case e.Trimmed:
-		return fmt.Sprintf("%s with no entry left, over service.max_feed_bytes (%s): service.oversize: trim cannot shorten it enough; raise service.max_feed_bytes", size, limit)
+		return fmt.Sprintf("%s with no entry left, over service.max_feed_bytes (%s): publish and serve refuse it (service.oversize: trim cannot shorten it enough); raise service.max_feed_bytes", size, limit)
 	}
-	return fmt.Sprintf("%s, over service.max_feed_bytes (%s): shorten days_back/days_ahead, split the kinds, or set service.oversize: trim", size, limit)
+	return fmt.Sprintf("%s, over service.max_feed_bytes (%s): publish and serve refuse it (service.oversize: fail); shorten days_back/days_ahead, split the kinds, or set service.oversize: trim", size, limit)
 }
 
 // trimToFit drops c's entries from the far end of its window, whole local

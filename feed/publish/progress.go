@@ -166,18 +166,10 @@ func OversizeWarning(id string, bytes, limit int) string {
 // OversizeRefusal says that the feed of e is refused, under
 // service.oversize: fail or, under trim, still over the limit with no
 // entry left or fitting only shortened to a date before today at its site:
-// check's words for what publish and serve do with it.
+// check's words for what publish and serve do with it, e's own after the
+// feed's name.
 func OversizeRefusal(e *OversizeError) string {
-	id := e.Feed
-	size, most := FormatBytesOver(int64(e.Bytes), int64(e.Limit))
-	if !e.TrimmedTo.IsZero() {
-		return fmt.Sprintf("feed %q is %s, over service.max_feed_bytes (%s): publish and serve refuse it (service.oversize: trim would shorten it to %s, before today at its site (%s), leaving past days alone); lower days_back or raise service.max_feed_bytes",
-			id, size, most, e.TrimmedTo.Format(time.DateOnly), e.Today.Format(time.DateOnly))
-	}
-	if e.Trimmed {
-		return fmt.Sprintf("feed %q is %s with no entry left, over service.max_feed_bytes (%s): publish and serve refuse it (service.oversize: trim cannot shorten it enough); raise service.max_feed_bytes", id, size, most)
-	}
-	return fmt.Sprintf("feed %q is %s, over service.max_feed_bytes (%s): publish and serve refuse it (service.oversize: fail); shorten days_back/days_ahead, split the kinds, or set service.oversize: trim", id, size, most)
+	return fmt.Sprintf("feed %q is %s", e.Feed, e.Error())
 }
 
 // TrimNote is the note about a feed shortened to stay under limit

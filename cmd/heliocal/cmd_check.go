@@ -111,7 +111,9 @@ type checkFeed struct {
 	Bytes     int      `json:"bytes"`
 	Oversize  bool     `json:"oversize"` // over service.max_feed_bytes, the whole window
 	// TrimmedTo is the last date of a feed shortened to fit (oversize:
-	// trim); Events and Bytes are then the shortened feed's.
+	// trim); Events and Bytes are then the shortened feed's. Of a feed
+	// refused (Oversize without TrimmedTo, among the report's refused),
+	// Events are the whole window's and Bytes the size its refusal names.
 	TrimmedTo string `json:"trimmed_to,omitempty"`
 	// shown are the kinds as the text table writes them: with a kinds
 	// entry's offset ("sunrise-30m"), so two sunrise entries read apart
@@ -269,12 +271,15 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		// encoded as publish and serve encode it, under service.oversize:
 		// as it is, shortened, or refused
 		cf := checkFeed{ID: f.ID, Site: f.Site, Kinds: kinds, Plans: len(f.Plans), DaysBack: f.DaysBack, DaysAhead: f.DaysAhead, shown: shown}
+		whole := len(cal.Entries)
 		data, err := publish.Encode(cal, &opts)
 		cf.Events = len(cal.Entries) // as trim left them
 		var oe *publish.OversizeError
 		switch {
 		case errors.As(err, &oe):
-			cf.Bytes, cf.Oversize = oe.Bytes, true
+			// the whole window's events, however trim left the calendar
+			// (with no entry, or as it came): publish and serve refuse it whole
+			cf.Events, cf.Bytes, cf.Oversize = whole, oe.Bytes, true
 			r.Refused = append(r.Refused, publish.OversizeRefusal(oe))
 		case err != nil:
 			return nil, nil, fmt.Errorf("feed %q: %w", f.ID, err)

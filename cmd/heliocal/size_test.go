@@ -328,3 +328,53 @@ func TestTrimBeforeTodayRefused(t *testing.T) {
 		t.Fatalf("serve still runs with a refused feed:\n%s", logs.String())
 	}
 }
+
+// A feed refused under oversize: trim has one events count in check's table
+// and JSON whichever way trim fails: left with no entry (a limit of 1 kB,
+// under its header and description alone) or fitting only shortened to a
+// date before today (12 kB, as in TestTrimBeforeTodayRefused). It is the
+// whole window's, as check counts the same feed under oversize: warn.
+func TestTrimRefusalsCountAlike(t *testing.T) {
+	window := strings.NewReplacer("days_back: 0", "days_back: 40", "days_ahead: 200", "days_ahead: 30").Replace(meadowOversize)
+	row := regexp.MustCompile(`(?m)^meadow .* (\d[\d,]*) +[\d.]+ k?B$`)
+	// check's events of the feed in its table and its JSON, and its
+	// refusal ("" for none)
+	check := func(service string) (table, inJSON int, refused string) {
+		t.Helper()
+		cfg := writeConfig(t, strings.Replace(window, "max_feed_bytes: 20000\n", service, 1))
+		_, out, errOut := runCLI(t, "check", "--config", cfg)
+		m := row.FindStringSubmatch(out)
+		if m == nil {
+			t.Fatalf("%q: no row of meadow in:\n%s", service, out)
+		}
+		table, _ = strconv.Atoi(strings.ReplaceAll(m[1], ",", ""))
+		_, out, _ = runCLI(t, "check", "--config", cfg, "--format", "json")
+		var r struct {
+			Refused []string
+			Feeds   []struct{ Events int }
+		}
+		if err := json.Unmarshal([]byte(out), &r); err != nil || len(r.Feeds) != 1 {
+			t.Fatalf("%q: check json %v:\n%s", service, err, out)
+		}
+		if len(r.Refused) > 0 {
+			refused = r.Refused[0]
+		}
+		if !strings.Contains(errOut, refused) {
+			t.Errorf("%q: the table's run refuses %q, the JSON's %q", service, errOut, refused)
+		}
+		return table, r.Feeds[0].Events, refused
+	}
+	wantTable, want, refused := check("max_feed_bytes: 12000\n")
+	if refused != "" || want < 100 || wantTable != want {
+		t.Fatalf("under oversize: warn: %d events in the table, %d in JSON, refused %q; want the same, about 280", wantTable, want, refused)
+	}
+	for _, tc := range []struct{ service, says string }{
+		{"max_feed_bytes: 1000\n  oversize: trim\n", "with no entry left"},
+		{"max_feed_bytes: 12000\n  oversize: trim\n", "before today at its site"},
+	} {
+		table, inJSON, refused := check(tc.service)
+		if !strings.Contains(refused, tc.says) || table != want || inJSON != want {
+			t.Errorf("%q: refused %q, %d events in the table, %d in JSON; want %q and %d events, the whole window's", tc.service, refused, table, inJSON, tc.says, want)
+		}
+	}
+}

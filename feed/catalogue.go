@@ -138,9 +138,8 @@ func (sky *Sky) Calendar(ctx context.Context, s *config.Site, f *config.Feed, fi
 		Alarm:       time.Duration(f.Alarm),
 		WindowStart: midnight(first, loc).UTC(),
 		WindowEnd:   midnight(last.AddDate(0, 0, 1), loc).UTC(),
-		FirstDate:   first,
 		LastDate:    last,
-		Stamp:       first,
+		Stamp:       first, // FirstDate
 	}
 	if !opts.Now.IsZero() {
 		cal.Today = localDate(opts.Now, loc)

@@ -151,16 +151,17 @@ type Calendar struct {
 	// VTIMEZONE covers at least this span.
 	WindowStart time.Time
 	WindowEnd   time.Time
-	// FirstDate and LastDate are the first and last local dates of the
-	// window (00:00 UTC), as the calendar was built for them (TrimmedTo is
-	// where a shortened one reaches).
-	FirstDate, LastDate time.Time
+	// LastDate is the last local date of the window (00:00 UTC), as the
+	// calendar was built for it (TrimmedTo is where a shortened one
+	// reaches); FirstDate is the first.
+	LastDate time.Time
 	// Today is the local date (00:00 UTC) the window was counted from, the
 	// date Options.Now is in the site's zone; zero for a calendar built
 	// without Options.Now (over dates given outright).
 	Today time.Time
 	// Stamp is the deterministic DTSTAMP / LAST-MODIFIED: derived from the
-	// inputs (e.g. the window start), never from the wall clock.
+	// inputs, never from the wall clock: the window's first local date
+	// (00:00 UTC), FirstDate.
 	Stamp   time.Time
 	Entries []Entry
 	// TrimmedTo, when set, is the last local date (00:00 UTC) the entries
@@ -182,6 +183,10 @@ type Calendar struct {
 	// back with the entries.
 	text []byte
 }
+
+// FirstDate is the first local date of the window (00:00 UTC), as the
+// calendar was built for it: the date it is stamped with (Stamp).
+func (c *Calendar) FirstDate() time.Time { return c.Stamp }
 
 // KindNote is a note of a kind as a feed words it: the kind, as in the
 // configuration, and the note's title.

@@ -352,7 +352,7 @@ feeds:
 	if err != nil {
 		t.Fatal(err)
 	}
-	if first, last := cal.FirstDate, cal.LastDate; !first.Equal(time.Date(2023, 12, 25, 0, 0, 0, 0, time.UTC)) || !last.Equal(day(4, 30)) {
+	if first, last := cal.FirstDate(), cal.LastDate; !first.Equal(time.Date(2023, 12, 25, 0, 0, 0, 0, time.UTC)) || !last.Equal(day(4, 30)) {
 		t.Fatalf("feed window %v to %v, want 2023-12-25 to 2024-04-30", first, last)
 	}
 	loc := cfg.Sites[0].TimeZone.Location

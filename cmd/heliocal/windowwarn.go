@@ -20,7 +20,7 @@ import (
 // entry that lists the date; a date the entry's own months or weekdays
 // leave out is not named here: datesFilteredOut says it is never published.
 func datesOutsideWindow(f *config.Feed, shown []string, listed [][]time.Time, cal *feed.Calendar) (warnings, notes []string) {
-	first, last := cal.FirstDate, cal.LastDate
+	first, last := cal.FirstDate(), cal.LastDate
 	var order []time.Time             // the dates outside, in the order first named
 	named := map[time.Time][]string{} // the entries naming each
 	add := func(entry string, d time.Time) {

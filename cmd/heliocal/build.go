@@ -80,6 +80,9 @@ func build(cfg *config.Config, now time.Time, l layout) ([]publish.Source, publi
 		Page:         pageText(cfg),
 		Oversize:     cfg.Service.Oversize,
 	}
+	for i := range cfg.Sites {
+		opts.Sites = append(opts.Sites, feed.SiteOf(&cfg.Sites[i]))
+	}
 	opts.BaseURL = l.base
 	return srcs, opts, nil
 }

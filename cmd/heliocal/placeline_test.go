@@ -58,11 +58,7 @@ feeds:
 // the configured pressure and temperature. A flat site's entry of the shard
 // manifests keeps its six fields.
 func TestIndexPlaceLineNamesHorizon(t *testing.T) {
-	cfgPath := writeConfig(t, placeLineConfig)
-	hills := "azimuth,altitude\n0,2\n90,8\n180,1\n270,4\n"
-	if err := os.WriteFile(filepath.Join(filepath.Dir(cfgPath), "hills.csv"), []byte(hills), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	cfgPath := writePlaceLineConfig(t)
 	// site id → the conditions of its place line, "" for none
 	want := map[string]string{
 		"flat":   "",
@@ -73,31 +69,15 @@ func TestIndexPlaceLineNamesHorizon(t *testing.T) {
 	names := map[string]string{"flat": "Flat Field", "raised": "Raised Field", "valley": "Valley Field", "cold": "Cold Field"}
 
 	whole, sharded := t.TempDir(), t.TempDir()
-	if code, _, errOut := runCLI(t, "publish", "--config", cfgPath, "--out", whole); code != 0 {
-		t.Fatalf("publish: exit %d: %s", code, errOut)
-	}
-	for _, sh := range []string{"2/3", "0/3", "1/3"} {
-		if code, _, errOut := runCLI(t, "publish", "--config", cfgPath, "--out", sharded, "--shard", sh); code != 0 {
-			t.Fatalf("publish --shard %s: exit %d: %s", sh, code, errOut)
-		}
-	}
-	index, err := os.ReadFile(filepath.Join(whole, "index.html"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	merged, err := os.ReadFile(filepath.Join(sharded, "index.html"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	if string(merged) != string(index) {
-		t.Errorf("the index merged from the shards differs from the whole run's")
-	}
+	publishShards(t, cfgPath, whole)
+	publishShards(t, cfgPath, sharded, "2/3", "0/3", "1/3")
+	index := sameIndex(t, whole, sharded)
 	for id, cond := range want {
 		line := "48.2000° N, 16.4000° E, elevation 170 m, time zone Europe/Vienna"
 		if cond != "" {
 			line = "48.2000° N, 16.4000° E, elevation 170 m, " + cond + ", time zone Europe/Vienna"
 		}
-		if !strings.Contains(string(index), `<p class="place">`+line+"</p>") {
+		if !strings.Contains(index, `<p class="place">`+line+"</p>") {
 			t.Errorf("%s: index has no place line %q", id, line)
 		}
 		code, out, errOut := runCLI(t, "events", "--config", cfgPath, "--site", id, "--from", "2027-01-15", "--to", "2027-01-15")
@@ -155,4 +135,105 @@ func TestIndexPlaceLineNamesHorizon(t *testing.T) {
 			}
 		}
 	}
+}
+
+// Shards published by a version whose manifests did not record the sites'
+// horizons and air (no site_conditions, no horizon, skyline, pressure_hpa
+// or temperature_c) are merged by the last shard into the index a whole run
+// writes: their sites' horizons and air are taken from the configuration.
+// Here flat-sun and cold-sun fall in shard 0 of 3, raised-sun and
+// valley-sun in shard 1, none in shard 2, which merges.
+func TestMergeOldManifestsNamesHorizon(t *testing.T) {
+	cfgPath := writePlaceLineConfig(t)
+	whole, sharded := t.TempDir(), t.TempDir()
+	publishShards(t, cfgPath, whole)
+	publishShards(t, cfgPath, sharded, "0/3", "1/3")
+	// the two manifests as the earlier version wrote them
+	dropped := 0
+	for _, name := range []string{"feeds-0-of-3.json", "feeds-1-of-3.json"} {
+		path := filepath.Join(sharded, name)
+		b, err := os.ReadFile(path)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var m map[string]any
+		if err := json.Unmarshal(b, &m); err != nil {
+			t.Fatalf("%s: %v", name, err)
+		}
+		if m["site_conditions"] != true {
+			t.Fatalf("%s: site_conditions is %v, want true", name, m["site_conditions"])
+		}
+		delete(m, "site_conditions")
+		for _, s := range m["sites"].([]any) {
+			site := s.(map[string]any)
+			for _, k := range []string{"horizon", "skyline", "pressure_hpa", "temperature_c"} {
+				if _, ok := site[k]; ok {
+					delete(site, k)
+					dropped++
+				}
+			}
+		}
+		if b, err = json.Marshal(m); err != nil {
+			t.Fatal(err)
+		}
+		if err := os.WriteFile(path, b, 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	if dropped != 5 { // raised's horizon, valley's skyline, cold's horizon, pressure and temperature
+		t.Fatalf("the manifests had %d fields of horizon and air, want 5", dropped)
+	}
+	publishShards(t, cfgPath, sharded, "2/3")
+	merged := sameIndex(t, whole, sharded)
+	for _, cond := range []string{"horizon 1.5°", "skyline 1–8° (4 points, hills.csv)", "horizon −0.5°, refraction for 1030 hPa and −20 °C"} {
+		if !strings.Contains(merged, ", elevation 170 m, "+cond+", time zone Europe/Vienna</p>") {
+			t.Errorf("the merged index does not name %q", cond)
+		}
+	}
+}
+
+// writePlaceLineConfig writes placeLineConfig and the skyline file its
+// valley site reads, and returns the configuration's path.
+func writePlaceLineConfig(t *testing.T) string {
+	t.Helper()
+	cfgPath := writeConfig(t, placeLineConfig)
+	hills := "azimuth,altitude\n0,2\n90,8\n180,1\n270,4\n"
+	if err := os.WriteFile(filepath.Join(filepath.Dir(cfgPath), "hills.csv"), []byte(hills), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return cfgPath
+}
+
+// publishShards publishes the configuration at cfgPath into dir: whole
+// without shards, else shard by shard in the order given ("2/3").
+func publishShards(t *testing.T, cfgPath, dir string, shards ...string) {
+	t.Helper()
+	if len(shards) == 0 {
+		if code, _, errOut := runCLI(t, "publish", "--config", cfgPath, "--out", dir); code != 0 {
+			t.Fatalf("publish: exit %d: %s", code, errOut)
+		}
+	}
+	for _, sh := range shards {
+		if code, _, errOut := runCLI(t, "publish", "--config", cfgPath, "--out", dir, "--shard", sh); code != 0 {
+			t.Fatalf("publish --shard %s: exit %d: %s", sh, code, errOut)
+		}
+	}
+}
+
+// sameIndex is the index.html merged from the shards in sharded, which
+// must be the one the whole run wrote into whole.
+func sameIndex(t *testing.T, whole, sharded string) string {
+	t.Helper()
+	index, err := os.ReadFile(filepath.Join(whole, "index.html"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	merged, err := os.ReadFile(filepath.Join(sharded, "index.html"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if string(merged) != string(index) {
+		t.Errorf("the index merged from the shards differs from the whole run's")
+	}
+	return string(merged)
 }

@@ -53,9 +53,14 @@ type manifestJSON struct {
 	Generated time.Time `json:"generated"`
 	// Configuration fingerprints the run's configuration (runDigest):
 	// manifests of different configurations are never merged.
-	Configuration string         `json:"configuration_sha256"`
-	Feeds         []FeedInfo     `json:"feeds"`
-	Sites         []manifestSite `json:"sites"`
+	Configuration string `json:"configuration_sha256"`
+	// Conditions tells that Sites carry each site's horizon and air where
+	// they are not a flat horizon and the standard refraction; the
+	// manifests of earlier versions do not, and a merge takes them from the
+	// configuration instead (RenderOptions.Sites).
+	Conditions bool           `json:"site_conditions"`
+	Feeds      []FeedInfo     `json:"feeds"`
+	Sites      []manifestSite `json:"sites"`
 	// Trimmed are the feeds service.oversize: trim shortened, for the
 	// charts of the index.
 	Trimmed []manifestTrim `json:"trimmed,omitempty"`
@@ -92,7 +97,7 @@ type manifestSkyline struct {
 }
 
 func (l *listing) manifest(sh Shard, digest string) (File, error) {
-	m := manifestJSON{Shard: sh.String(), Generated: l.generated, Configuration: digest, Feeds: l.feeds, Sites: []manifestSite{}}
+	m := manifestJSON{Shard: sh.String(), Generated: l.generated, Configuration: digest, Conditions: true, Feeds: l.feeds, Sites: []manifestSite{}}
 	if m.Feeds == nil {
 		m.Feeds = []FeedInfo{}
 	}
@@ -423,11 +428,28 @@ func (w *Writer) mergeManifests(ctx context.Context, n int, digest string, opts 
 			if s.Temperature != nil {
 				site.Temperature = *s.Temperature
 			}
+			if !m.Conditions {
+				site = conditionsOf(site, opts.Sites)
+			}
 			l.sites = append(l.sites, site)
 		}
 	}
 	l.finish(gen)
 	return l.indexFiles(ctx, opts)
+}
+
+// conditionsOf is site with the horizon and air of the site of its id
+// among sites (RenderOptions.Sites), for a shard manifest that does not
+// record them (written before manifests did); site as it is when none has
+// its id.
+func conditionsOf(site feed.Site, sites []feed.Site) feed.Site {
+	i := slices.IndexFunc(sites, func(s feed.Site) bool { return s.ID == site.ID })
+	if i < 0 {
+		return site
+	}
+	c := sites[i]
+	site.Horizon, site.Skyline, site.Pressure, site.Temperature = c.Horizon, c.Skyline, c.Pressure, c.Temperature
+	return site
 }
 
 // Publish renders the run's feeds and writes them into w.Dir, streaming: each

@@ -97,6 +97,11 @@ type RenderOptions struct {
 	// Shard restricts the run to one part of the feeds; see Publish for what
 	// happens to feeds.json and index.html then.
 	Shard Shard
+	// Sites are the configuration's sites, of every shard: merging shard
+	// manifests written before they recorded a site's horizon and air
+	// takes them from here, by the site's id (without the site, its place
+	// line names none).
+	Sites []feed.Site
 	// Configuration fingerprints what the feeds are made from (the command
 	// passes a hash of the sites, the feeds and the settings that shape the
 	// output). Shards of one run must agree on it: Publish refuses to mix

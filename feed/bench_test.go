@@ -2,9 +2,11 @@ package feed
 
 import (
 	"context"
+	"slices"
 	"testing"
 	"time"
 
+	"heliocal/astro"
 	"heliocal/config"
 	"heliocal/internal/cputime"
 )
@@ -13,21 +15,7 @@ import (
 // publish benchmark (sunrise, sunset, civil dawn and dusk, golden hour),
 // from a shared ephemeris built outside the loop.
 func BenchmarkEntriesSiteYear(b *testing.B) {
-	s := &config.Site{ID: "b", Name: "Bench", Latitude: 48.2, Longitude: 16.4}
-	if err := s.TimeZone.UnmarshalText([]byte("Europe/Vienna")); err != nil {
-		b.Fatal(err)
-	}
-	first := time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC)
-	last := first.AddDate(0, 0, 399)
-	sk, err := NewSky(first, last)
-	if err != nil {
-		b.Fatal(err)
-	}
-	var specs []config.KindSpec
-	for _, n := range []string{"sunrise", "sunset", "civil-dawn", "civil-dusk", "golden-hour"} {
-		k, _ := config.ParseKind(n)
-		specs = append(specs, config.KindSpec{Kind: k})
-	}
+	s, first, last, sk, specs := benchDays(b, 48.2, 16.4, "Europe/Vienna", 400)
 	var n int
 	b.ReportAllocs()
 	for b.Loop() {
@@ -38,6 +26,28 @@ func BenchmarkEntriesSiteYear(b *testing.B) {
 		n = len(es)
 	}
 	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(n), "ns/entry")
+}
+
+// benchDays is the setup of the benchmarks of one site: the site at lat,
+// lon in zone, the local dates first..last from 2027-01-01 over days
+// dates, a Sky for them, and the daily kinds of the publish benchmark
+// (sunrise, sunset, civil dawn and dusk, golden hour).
+func benchDays(b *testing.B, lat, lon float64, zone string, days int) (s *config.Site, first, last time.Time, sk *Sky, daily []config.KindSpec) {
+	s = &config.Site{ID: "b", Name: "Bench", Latitude: lat, Longitude: lon}
+	if err := s.TimeZone.UnmarshalText([]byte(zone)); err != nil {
+		b.Fatal(err)
+	}
+	first = time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC)
+	last = first.AddDate(0, 0, days-1)
+	sk, err := NewSky(first, last)
+	if err != nil {
+		b.Fatal(err)
+	}
+	for _, n := range []string{"sunrise", "sunset", "civil-dawn", "civil-dusk", "golden-hour"} {
+		k, _ := config.ParseKind(n)
+		daily = append(daily, config.KindSpec{Kind: k})
+	}
+	return s, first, last, sk, daily
 }
 
 // plansLighting is the setup of the lighting and plans benchmarks: one
@@ -138,5 +148,75 @@ func BenchmarkPlansLightingAlternating(b *testing.B) {
 		if j > 0 {
 			b.ReportMetric((float64(cpu[j])/float64(cpu[0])-1)*100, v.name+"-%")
 		}
+	}
+}
+
+// BenchmarkLampNotesChunks measures what joinLampNotes adds to a site-year
+// computed chunk by chunk (EventChunks, as `heliocal events` computes it):
+// the daily kinds of BenchmarkEntriesSiteYear and lighting:16h at 60.17° N,
+// where no lamps are needed from May into August: the stretch crosses from
+// the first chunk into the second, so that the first chunk's note looks
+// ahead for its end. Lighting is kept in May alone ("months=may": the
+// second chunk has no note of the stretch, which the filter leaves in May)
+// or on every date ("unfiltered", as `heliocal events --kinds` gives it:
+// the second chunk's note on its first date looks back a date). Each
+// iteration computes the year ("year-cpu-ms", joinLampNotes included) and
+// then calls joinLampNotes alone on each chunk's notes as computed before
+// it ("join-cpu-ms"); "join-%" is the second's share of the first.
+func BenchmarkLampNotesChunks(b *testing.B) {
+	s, first, last, sk, daily := benchDays(b, 60.17, 24.94, "Europe/Helsinki", 365)
+	k, _ := config.ParseKind("lighting:16h")
+	p := PlaceOf(s)
+	ctx := context.Background()
+	for _, v := range []struct {
+		name   string
+		months []string
+	}{{"months=may", []string{"may"}}, {"unfiltered", nil}} {
+		specs := append(slices.Clip(daily), config.KindSpec{Kind: k, Months: v.months})
+		lamps := kindsNamed(specs, "lighting")
+		// each chunk's notes before joinLampNotes: those of its own
+		// computation
+		type chunk struct {
+			first, last time.Time
+			notes       []Note
+		}
+		var chunks []chunk
+		for d := first; !d.After(last); d = d.AddDate(0, 0, ChunkDays) {
+			end := d.AddDate(0, 0, ChunkDays-1)
+			if end.After(last) {
+				end = last
+			}
+			_, _, _, notes, err := sk.computeEvents(ctx, p, specs, d, end, &buffers{})
+			if err != nil {
+				b.Fatal(err)
+			}
+			chunks = append(chunks, chunk{d, end, slices.Clone(notes)})
+		}
+		// the first chunk's note of the stretch, in May, says no end yet
+		open := func(n Note) bool {
+			return n.Kind.Name == "lighting" && n.State == astro.AlwaysAbove && n.Until.IsZero()
+		}
+		if len(chunks) != 2 || !slices.ContainsFunc(chunks[0].notes, open) {
+			b.Fatalf("%s: %d chunks, the first's notes %v: want 2, and a note of no lamps needed without its end", v.name, len(chunks), chunks[0].notes)
+		}
+		b.Run(v.name, func(b *testing.B) {
+			var year, join time.Duration
+			for b.Loop() {
+				t0 := cputime.Used()
+				if err := sk.EventChunks(ctx, p, specs, first, last, func(Chunk) error { return nil }); err != nil {
+					b.Fatal(err)
+				}
+				t1 := cputime.Used()
+				for _, c := range chunks {
+					if _, err := sk.joinLampNotes(ctx, p, lamps, c.first, c.last, first, last, slices.Clone(c.notes)); err != nil {
+						b.Fatal(err)
+					}
+				}
+				year, join = year+t1-t0, join+cputime.Used()-t1
+			}
+			b.ReportMetric(float64(year)/1e6/float64(b.N), "year-cpu-ms")
+			b.ReportMetric(float64(join)/1e6/float64(b.N), "join-cpu-ms")
+			b.ReportMetric(float64(join)/float64(year)*100, "join-%")
+		})
 	}
 }

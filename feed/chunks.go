@@ -204,6 +204,10 @@ func kindsNamed(specs []config.KindSpec, name string) []config.KindSpec {
 	return out
 }
 
+// lookAheadDays is how many dates after its chunk joinLampNotes computes
+// first to find where a stretch without lamps ends.
+const lookAheadDays = 7
+
 // joinLampNotes makes the "no lamps needed" notes of the chunk d..end of
 // the range first..last those of one computation over the whole range: a
 // stretch of dates that need no lamps has one note, on its first date,
@@ -211,8 +215,9 @@ func kindsNamed(specs []config.KindSpec, name string) []config.KindSpec {
 // A chunk's note on its first date is dropped when the date before (in the
 // range) needs no lamps either, and a note whose stretch reaches the
 // chunk's last date gets the first date after it that needs lamps (looked
-// up chunk by chunk; none when the stretch outlasts the range). Each date's
-// needs do not depend on the dates computed with it.
+// up a week ahead, then over twice as many dates each time, up to a
+// chunk's; none when the stretch outlasts the range). Each date's needs do
+// not depend on the dates computed with it.
 //
 // With a filter (months, weekdays, dates) a stretch's note is on the first
 // date of the stretch the filter keeps (moveStretchNotes): a chunk's note
@@ -237,7 +242,9 @@ func (s *Sky) joinLampNotes(ctx context.Context, p Place, lamps []config.KindSpe
 	}
 	for _, sp := range lamps {
 		mine := func(n *Note) bool { return n.Kind == sp.Kind && n.State == astro.AlwaysAbove }
-		if d.After(first) {
+		// only a note on d itself may belong to a stretch begun before
+		// d: without one there is nothing to look back for
+		if d.After(first) && slices.ContainsFunc(notes, func(n Note) bool { return mine(&n) && n.start().Equal(d) }) {
 			before := d.AddDate(0, 0, -1)
 			_, ok, err := noLamps(sp, before, before)
 			if err != nil {
@@ -268,8 +275,11 @@ func (s *Sky) joinLampNotes(ctx context.Context, p Place, lamps []config.KindSpe
 			if !mine(n) || !n.Until.IsZero() {
 				continue
 			}
-			for from := end.AddDate(0, 0, 1); !from.After(last); from = from.AddDate(0, 0, ChunkDays) {
-				to := from.AddDate(0, 0, ChunkDays-1)
+			// a week ahead first, then twice as many dates each time
+			// (up to a chunk's): a stretch mostly ends within weeks
+			days := lookAheadDays
+			for from := end.AddDate(0, 0, 1); !from.After(last); from, days = from.AddDate(0, 0, days), min(2*days, ChunkDays) {
+				to := from.AddDate(0, 0, days-1)
 				if to.After(last) {
 					to = last
 				}
@@ -278,7 +288,7 @@ func (s *Sky) joinLampNotes(ctx context.Context, p Place, lamps []config.KindSpe
 					return nil, err
 				}
 				if !ok {
-					n.Until = from // lamps are needed again on the chunk's first date
+					n.Until = from // lamps are needed again on the first date looked at
 					break
 				}
 				if !next.Until.IsZero() {

@@ -4,6 +4,7 @@ import (
 	"cmp"
 	"context"
 	"errors"
+	"fmt"
 	"math"
 	"math/rand/v2"
 	"runtime"
@@ -416,6 +417,65 @@ func TestEventChunksLampNotesAsWhole(t *testing.T) {
 		if !found {
 			t.Errorf("%s: no stretch without lamps around %s: %+v", name, c.solstice.Format(time.DateOnly), want)
 		}
+	}
+}
+
+// With a filter too (months, weekdays) the lighting notes computed chunk
+// by chunk are those of one computation over the whole range: a stretch's
+// note on the first date of it the filter keeps, saying until when, however
+// the chunk boundaries fall in the stretch (at 60.17° N the natural day is
+// over 16 h from about mid-May to the end of July, from memory; at 89.5° N
+// the midnight Sun outlasts a chunk).
+func TestEventChunksFilteredLampNotesAsWhole(t *testing.T) {
+	k, err := config.ParseKind("lighting:16h")
+	if err != nil {
+		t.Fatal(err)
+	}
+	first, last := time.Date(2026, 12, 20, 0, 0, 0, 0, time.UTC), time.Date(2028, 1, 31, 0, 0, 0, 0, time.UTC)
+	sky, err := NewSky(first, last)
+	if err != nil {
+		t.Fatal(err)
+	}
+	stretches := 0
+	for _, lat := range []float64{60.17, 89.5} {
+		p := Place{Observer: astro.Observer{Latitude: lat, Longitude: 24.94}, Location: time.UTC}
+		for _, spec := range []config.KindSpec{
+			{Kind: k, Months: []string{"may"}},
+			{Kind: k, Months: []string{"jul"}},
+			{Kind: k, Months: []string{"jun", "aug"}},
+			{Kind: k, Weekdays: []string{"sat"}},
+		} {
+			name := fmt.Sprintf("%g° N, months %v, weekdays %v", lat, spec.Months, spec.Weekdays)
+			specs := []config.KindSpec{spec}
+			_, want, err := sky.EventsFor(context.Background(), p, specs, first, last)
+			if err != nil {
+				t.Fatal(err)
+			}
+			var got []Note
+			err = sky.EventChunks(context.Background(), p, specs, first, last, func(ch Chunk) error {
+				got = append(got, ch.Notes...)
+				return nil
+			})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if len(got) != len(want) {
+				t.Errorf("%s: chunked notes %+v, whole range %+v", name, got, want)
+				continue
+			}
+			for i := range got {
+				if g, w := got[i], want[i]; g.Kind != w.Kind || !g.Date.Equal(w.Date) || g.State != w.State || !g.Until.Equal(w.Until) {
+					t.Errorf("%s: note %d: %s %s until %s, whole range %s %s until %s", name, i,
+						g.Kind, g.Date.Format(time.DateOnly), g.Until.Format(time.DateOnly), w.Kind, w.Date.Format(time.DateOnly), w.Until.Format(time.DateOnly))
+				}
+				if got[i].State == astro.AlwaysAbove {
+					stretches++
+				}
+			}
+		}
+	}
+	if stretches < 8 {
+		t.Errorf("%d notes of no lamps needed in all; want at least one per place and filter", stretches)
 	}
 }
 

@@ -175,7 +175,11 @@ func (s *Site) setSkyline(path string, pts [][2]float64, places []int, name func
 			az = 0
 		}
 		if k, dup := seen[az]; dup {
-			ps = append(ps, pointProblem{place, FieldError{Path: at, Value: value, Msg: fmt.Sprintf("azimuth %s given twice, also at %s: 0 and 360 are the same", ftoa(az), name(placeOf(k))), Hint: "one altitude per direction"}})
+			msg := fmt.Sprintf("azimuth %s given twice, also at %s", ftoa(az), name(placeOf(k)))
+			if az == 0 {
+				msg += ": 0 and 360 are the same" // north, written both ways
+			}
+			ps = append(ps, pointProblem{place, FieldError{Path: at, Value: value, Msg: msg, Hint: "one altitude per direction"}})
 			continue
 		}
 		seen[az] = j

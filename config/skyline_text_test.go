@@ -18,7 +18,8 @@ func TestSkylineFromTextNamesPoints(t *testing.T) {
 		"0:2,90:60":       `horizon: "0:2,90:60": point 2 (90:60): altitude must be within -5..45 degrees (the apparent altitude of the skyline in that direction; azimuth comes first)`,
 		"0:2, 361:4":      `point 2 (361:4): azimuth must be within 0..360`,
 		"90:8,0:2,360:1":  `point 3 (360:1): azimuth 0 given twice, also at point 2: 0 and 360 are the same`,
-		"10.01:2,10.04:3": `point 2 (10.04:3): azimuth 10 given twice, also at point 1:`, // rounded first
+		"90:8,0:2,90:1":   `point 3 (90:1): azimuth 90 given twice, also at point 1 (one altitude per direction)`, // 0 and 360 not in question
+		"10.01:2,10.04:3": `point 2 (10.04:3): azimuth 10 given twice, also at point 1 (`,                         // rounded first
 		"0:2,,90:8":       `point 2 (): must be azimuth:altitude, two numbers`,
 		// every point at fault, in the order written, as the configuration
 		// lists them; the hints differ, so none is given

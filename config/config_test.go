@@ -165,6 +165,7 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-skyline-point.yaml", "sites[0].horizon[1]", "[8, 90]", "altitude must be within -5..45 degrees", "azimuth comes first", 0},
 		{"bad-skyline-shape.yaml", "sites[0].horizon[1]", "[90]", "must be a pair [azimuth, altitude]", "horizon: [[0, 2.5]", 0},
 		{"bad-skyline-file.yaml", "sites[0].horizon", "no-such-skyline.csv", "no such skyline file", "azimuth,altitude", 0},
+		{"bad-horizon-degrees.yaml", "sites[0].horizon", "2°", "no such skyline file", "for one altitude, write the number alone: horizon: 2", 0},
 		{"bad-skyline-file-point.yaml", "sites[0].horizon", "bad-skyline-point.csv", "line 5: [120, 60]: altitude must be within -5..45 degrees", "azimuth comes first", 0},
 		{"sun-hidden-no-skyline.yaml", "feeds[0].kinds[1]", "sun-hidden", `site "valley" has no skyline`, "horizon: [[0, 2]", 0},
 		{"bad-pressure.yaml", "sites[0].pressure_hpa", "29.9", "must be within 300..1100 hPa", "not reduced to sea level", 0},

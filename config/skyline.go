@@ -43,6 +43,13 @@ func (s *Site) resolveHorizon(path, dir string) []FieldError {
 			if name != v {
 				hint = "a relative name is read from the configuration file's directory; " + hint
 			}
+			if n := altitudeText(v); n != "" { // "2°", or "2" in quotes
+				written := "horizon: " + n
+				if strings.HasPrefix(path, "--") {
+					written = path + " " + n // a flag: "--horizon 2"
+				}
+				hint = "for one altitude, write the number alone: " + written
+			}
 			return []FieldError{{Path: path, Value: v, Msg: err.Error(), Hint: hint}}
 		}
 		s.HorizonFile = name
@@ -192,6 +199,20 @@ func (s *Site) setSkyline(path string, pts [][2]float64, places []int, name func
 	sort.Slice(pts, func(i, j int) bool { return pts[i][0] < pts[j][0] })
 	s.Skyline = pts
 	return nil
+}
+
+// altitudeText is the number of a horizon written as text, as a single
+// altitude is meant: "2" for "2", "2°" or "2 deg"; "" for other text (a
+// file name).
+func altitudeText(v string) string {
+	t := strings.TrimSpace(v)
+	for _, unit := range []string{"°", "degrees", "deg"} {
+		t = strings.TrimSpace(strings.TrimSuffix(t, unit))
+	}
+	if _, err := strconv.ParseFloat(t, 64); err != nil {
+		return ""
+	}
+	return t
 }
 
 // readSkylineCSV reads "azimuth,altitude" lines: the points and the line

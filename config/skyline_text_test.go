@@ -56,3 +56,13 @@ func TestHorizonFromTextFileEveryLine(t *testing.T) {
 		t.Errorf("%v, want %q", err, want)
 	}
 }
+
+// A horizon flag written with its degree sign is told the number to give.
+func TestHorizonFromTextDegreeSign(t *testing.T) {
+	var s Site
+	err := s.HorizonFromText("--horizon", "2°")
+	want := "(for one altitude, write the number alone: --horizon 2)"
+	if err == nil || !strings.Contains(err.Error(), want) {
+		t.Errorf("%v, want %q", err, want)
+	}
+}

@@ -182,6 +182,8 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-timezone-number.yaml", "sites[0].timezone", "2", "must be a time zone name, not a number", `"Europe/Vienna"`, 0},
 		{"bad-kind-number.yaml", "feeds[0].kinds[1]", "5", `must be a kind name or a mapping with a "kind" key, not a number`, "kind: sunrise", 0},
 		{"bad-days-huge.yaml", "feeds[0].days_ahead", "1e+20", "is far too large", "", 0},
+		{"bad-kind-empty.yaml", "feeds[0].kinds[0].kind", `""`, "is empty: name a kind", "known kinds: sunrise, sunset", 0},
+		{"bad-plan-date-words.yaml", "feeds[0].plans[0].date", "every blue moon", `"every" takes one word, a weekday, "day" or a date MM-DD, not "blue moon"`, `"every friday"`, 0},
 		{"unknown-kind.yaml", "feeds[0].kinds[0]", "sunrize", "unknown kind", `did you mean "sunrise"?`, 0},
 		{"unknown-kind-mapping.yaml", "feeds[0].kinds[1].kind", "moonrize", "unknown kind", `"moonrise"`, 0},
 		{"duplicate-site-id.yaml", "sites[1].id", "north-field", "duplicate site id, also that of sites[0]", "", 0},
@@ -646,6 +648,7 @@ func TestLoadErrors(t *testing.T) {
 		"syntax-error.toml":  "cannot read the file as toml: line 3, column",
 		"syntax-error.json":  "cannot read the file as json: line 3: invalid character '}'",
 		"not-a-mapping.yaml": "cannot read the file as yaml: line 2: the document is a list, not a mapping of keys (a configuration starts with keys such as sites: and feeds:)",
+		"two-documents.yaml": "cannot read the file as yaml: line 11: a second document begins here with ---, and heliocal reads one (write every site and feed under one sites: and one feeds:)",
 		"not-a-mapping.json": "cannot read the file as json: the document is a list, not a mapping of keys (a configuration starts with keys such as sites: and feeds:)",
 	} {
 		_, err = loadTestdata(t, name)

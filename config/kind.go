@@ -191,6 +191,9 @@ func ParseKind(s string) (Kind, error) {
 	base = strings.TrimSpace(base)
 	param = strings.TrimSpace(param)
 	d, ok := kindIndex[base]
+	if !ok && text == "" { // `kind: ""`, `kinds: [""]`: no value to name
+		return Kind{}, &KindError{Value: s, Msg: "is empty: name a kind", Hint: "known kinds: " + strings.Join(KindNames, ", ")}
+	}
 	if !ok {
 		hint := "known kinds: " + strings.Join(KindNames, ", ")
 		if near := nearKind(text, KindNames); near != "" {

@@ -89,7 +89,7 @@ func TestParseKindErrors(t *testing.T) {
 		{"photoperoid:12h", "unknown kind", `did you mean "photoperiod:12h"?`},
 		{"sunaltitude", "unknown kind", `did you mean "sun-altitude:-3.5"?`},
 		{"tea-time", "unknown kind", "known kinds: sunrise, sunset"},
-		{"", "unknown kind", "known kinds:"},
+		{"", "is empty: name a kind", "known kinds:"},
 		{"sunrise:5", "takes no parameter", `write "sunrise"`},
 		{"sun-altitude", "needs an altitude", ""},
 		{"sun-altitude:", "needs an altitude", ""},

@@ -116,6 +116,11 @@ func parseFrom(r io.Reader, format string, env LookupEnv, dir string) (*Config, 
 // from, where a relative skyline file name is read from ("" for the
 // working directory: standard input, the demo).
 func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, err error) {
+	if format == "yaml" {
+		if line := secondDocument(data); line > 0 {
+			return nil, fmt.Errorf("%w as yaml: line %d: a second document begins here with ---, and heliocal reads one (write every site and feed under one sites: and one feeds:)", ErrUnreadable, line)
+		}
+	}
 	// Duplicate keys are problems of their own; the first of each is kept
 	// so that every other problem of the document is listed with them.
 	dups, doc := duplicateKeys(data, format)
@@ -212,6 +217,45 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		return nil, newValidationError(problems)
 	}
 	return c, nil
+}
+
+// secondDocument returns the line of a YAML document marker ("---") that
+// starts a second document with content, 0 when there is none: the decoder
+// reads the first document alone, and the sites and feeds of the others
+// would be dropped without a word. A marker before the first content, or
+// one followed by comments only, is no second document. The lines are
+// looked at first; the decoder reads the file again only when a marker
+// follows content.
+func secondDocument(data []byte) int {
+	content, line := false, 0
+	for i, l := range bytes.Split(data, []byte("\n")) {
+		l = bytes.TrimRight(l, "\r")
+		marker := bytes.HasPrefix(l, []byte("---")) && (len(l) == 3 || l[3] == ' ' || l[3] == '\t')
+		switch {
+		case marker && content:
+			line = i + 1
+		case marker, len(bytes.TrimSpace(l)) == 0, l[0] == '#', l[0] == '%':
+			continue
+		default:
+			content = true
+			continue
+		}
+		break
+	}
+	if line == 0 {
+		return 0
+	}
+	dec := yaml.NewDecoder(bytes.NewReader(data))
+	var first, second yaml.Node
+	if dec.Decode(&first) != nil || dec.Decode(&second) != nil {
+		return 0 // one document, or a syntax error the reader reports
+	}
+	for _, n := range second.Content {
+		if n.Kind != yaml.ScalarNode || n.Tag != "!!null" {
+			return line
+		}
+	}
+	return 0
 }
 
 // readConfig runs viper's reader, turning a panic of a format decoder on
@@ -783,6 +827,9 @@ func scalarTypeError(to reflect.Type, data any, hint string) error {
 func kindValueError(err error) error {
 	var ke *KindError
 	if errors.As(err, &ke) {
+		if strings.TrimSpace(ke.Value) == "" { // shown, as `kind: ""` is written
+			return &valueError{Value: strconv.Quote(ke.Value), Msg: ke.Msg, Hint: ke.Hint}
+		}
 		return &valueError{Value: ke.Value, Msg: ke.Msg, Hint: ke.Hint}
 	}
 	return err

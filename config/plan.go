@@ -299,6 +299,10 @@ func parseDateRule(f []string) (DateRule, *RuleError) {
 			return DateRule{}, err
 		}
 		return DateRule{Type: RuleEvent, Event: k}, nil
+	case len(f) > 2 && f[0] == "every":
+		// "every blue moon", "every other friday"
+		return DateRule{}, &RuleError{Msg: fmt.Sprintf("\"every\" takes one word, a weekday, \"day\" or a date MM-DD, not %q", strings.Join(f[1:], " ")),
+			Hint: `e.g. "every friday" or "every 04-25"; an event's dates alone: "full-moon"`}
 	case len(f) == 3:
 		d, ok := ParseWeekday(f[0])
 		if !ok {

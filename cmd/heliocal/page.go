@@ -46,7 +46,7 @@ func pageText(cfg *config.Config) *publish.PageText {
 	return p
 }
 
-// placeWords writes where a site is: "47.81° N, 13.06° E, 430 m,
+// placeWords writes where a site is: "47.8100° N, 13.0600° E, 430 m,
 // Europe/Vienna", with its horizon and air when they are not a flat horizon
 // and the standard refraction, as the index's place lines name them: "…,
 // 430 m, horizon 2°, Europe/Vienna".
@@ -55,5 +55,5 @@ func placeWords(s config.Site) string {
 	if c := feed.SiteOf(&s).Conditions(); c != "" {
 		cond = ", " + c
 	}
-	return fmt.Sprintf("%s, %.0f m%s, %s", feed.Coords(s.Latitude, s.Longitude, 2), s.Elevation, cond, s.TimeZone.Name())
+	return fmt.Sprintf("%s, %.0f m%s, %s", feed.Coords(s.Latitude, s.Longitude, 4), s.Elevation, cond, s.TimeZone.Name())
 }

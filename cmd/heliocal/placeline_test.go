@@ -102,9 +102,9 @@ func TestIndexPlaceLineNamesHorizon(t *testing.T) {
 				id = k
 			}
 		}
-		place := "48.20° N, 16.40° E, 170 m, Europe/Vienna"
+		place := "48.2000° N, 16.4000° E, 170 m, Europe/Vienna"
 		if want[id] != "" {
-			place = "48.20° N, 16.40° E, 170 m, " + want[id] + ", Europe/Vienna"
+			place = "48.2000° N, 16.4000° E, 170 m, " + want[id] + ", Europe/Vienna"
 		}
 		if s.Place != place {
 			t.Errorf("served page: %s: place %q, want %q", s.Name, s.Place, place)

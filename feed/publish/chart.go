@@ -402,7 +402,7 @@ func (g geometry) draw(id, class string, c *SiteChart, today int) drawing {
 		Months:     g.monthTicks(days),
 		Hours:      g.hourTicks(),
 		Marks:      g.markViews(c.Marks, c.Location, first, last),
-		Thresholds: g.thresholdViews(days, c.Levels),
+		Thresholds: g.thresholdViews(days, c.Levels, today),
 		Phases:     g.phaseViews(c.Phases, c.Location, first, last),
 		Today:      g.todayMark(today, days),
 	}
@@ -588,8 +588,9 @@ func (g geometry) markViews(marks []Mark, loc *time.Location, first, last time.T
 // thresholdViews marks each date on which the day length crosses a
 // photoperiod threshold: the first day at or over it ("↑") or the first day
 // under it ("↓"). The labels alternate between two rows, left to right, so
-// that neighbours do not overlap.
-func (g geometry) thresholdViews(days []ChartDay, levels []Level) []thresholdView {
+// that neighbours do not overlap. A crossing in the weeks before today (the
+// index of today in days, or -1) is told in the past tense.
+func (g geometry) thresholdViews(days []ChartDay, levels []Level, today int) []thresholdView {
 	step := g.dayStep(len(days))
 	type crossing struct {
 		i  int
@@ -611,13 +612,19 @@ func (g geometry) thresholdViews(days []ChartDay, levels []Level) []thresholdVie
 		x := g.Left + float64(c.i)*step
 		label := formatHours(c.lv.Length)
 		tv := thresholdView{X: num(x), TX: num(x + 2), TY: num(g.bottom() - 4 - 12*float64(n%2))}
-		if c.up {
-			tv.Label = label + " ↑"
-			tv.Text = fmt.Sprintf("Day length reaches %s on %s", label, chartDate(days[c.i].Date, days[0].Date, days[len(days)-1].Date))
-		} else {
-			tv.Label = label + " ↓"
-			tv.Text = fmt.Sprintf("Day length drops under %s on %s", label, chartDate(days[c.i].Date, days[0].Date, days[len(days)-1].Date))
+		past := c.i < today
+		var verb string
+		switch {
+		case c.up && past:
+			tv.Label, verb = label+" ↑", "reached"
+		case c.up:
+			tv.Label, verb = label+" ↑", "reaches"
+		case past:
+			tv.Label, verb = label+" ↓", "dropped under"
+		default:
+			tv.Label, verb = label+" ↓", "drops under"
 		}
+		tv.Text = fmt.Sprintf("Day length %s %s on %s", verb, label, chartDate(days[c.i].Date, days[0].Date, days[len(days)-1].Date))
 		if c.lv.Label != "" {
 			tv.Text += " (" + c.lv.Label + ")"
 		}

@@ -76,3 +76,24 @@ func TestChartWordsLampsAndDark(t *testing.T) {
 		t.Errorf("without lamps, dark windows before today only: title %q, summary %q", v.Title, v.Summary)
 	}
 }
+
+// The chart starts four weeks before today, so a photoperiod crossing may lie
+// in the shaded weeks: its words are in the past tense, as the caption says
+// the figures are for the year from today.
+func TestThresholdBeforeTodayInPastTense(t *testing.T) {
+	first := time.Date(2027, 3, 1, 0, 0, 0, 0, time.UTC)
+	var days []ChartDay
+	for i, h := range []float64{11.8, 11.9, 12.1, 12.2, 12.3, 12.4, 12.3, 12.2, 11.9, 11.8} {
+		days = append(days, ChartDay{Date: first.AddDate(0, 0, i), Daylight: time.Duration(h * float64(time.Hour))})
+	}
+	got := desk.thresholdViews(days, []Level{{Length: 12 * time.Hour}}, 5)
+	want := []string{"Day length reached 12 h on 3 Mar", "Day length drops under 12 h on 9 Mar"}
+	if len(got) != len(want) {
+		t.Fatalf("%d crossings, want %d", len(got), len(want))
+	}
+	for i, w := range want {
+		if got[i].Text != w {
+			t.Errorf("crossing %d reads %q, want %q", i, got[i].Text, w)
+		}
+	}
+}

@@ -267,6 +267,7 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		warnings, later := datesOutsideWindow(&f, shown, listed, cal)
 		r.Warnings = append(r.Warnings, warnings...)
 		r.Warnings = append(r.Warnings, datesFilteredOut(&f, shown, listed)...)
+		r.Warnings = append(r.Warnings, planDatesFilteredOut(&f)...)
 		r.Notes = append(r.Notes, later...)
 		// encoded as publish and serve encode it, under service.oversize:
 		// as it is, shortened, or refused

@@ -18,7 +18,8 @@ import (
 // the kinds entries as check's table writes them, listed the dates each
 // lists (config.ListedDates). One line per date and side, naming every
 // entry that lists the date; a date the entry's own months or weekdays
-// leave out is not named here: datesFilteredOut says it is never published.
+// leave out is not named here: datesFilteredOut and planDatesFilteredOut
+// say it is never published.
 func datesOutsideWindow(f *config.Feed, shown []string, listed [][]time.Time, cal *feed.Calendar) (warnings, notes []string) {
 	first, last := cal.FirstDate(), cal.LastDate
 	var order []time.Time             // the dates outside, in the order first named
@@ -41,7 +42,8 @@ func datesOutsideWindow(f *config.Feed, shown []string, listed [][]time.Time, ca
 		}
 	}
 	for _, p := range f.Plans {
-		if r, err := config.ParseDateRule(p.Date); err == nil && r.Type == config.RuleOnce {
+		if r, err := config.ParseDateRule(p.Date); err == nil && r.Type == config.RuleOnce &&
+			config.NewDateFilter(p.Weekdays, p.Months, nil).Allows(r.Date) {
 			add(fmt.Sprintf("plan %q", p.Title), r.Date)
 		}
 	}
@@ -79,4 +81,51 @@ func datesFilteredOut(f *config.Feed, shown []string, listed [][]time.Time) []st
 		}
 	}
 	return out
+}
+
+// planDatesFilteredOut words the plans of feed f whose date rule names only
+// dates that the plan's own months or weekdays leave out, so that it is
+// never published: one date ("2027-06-12") in another month or on another
+// day of the week, a weekday rule ("every friday", "saturday nearest
+// new-moon") on a day its weekdays leave out, a yearly date ("every 04-25")
+// in a month its months leave out. One line per plan and filter.
+func planDatesFilteredOut(f *config.Feed) []string {
+	var out []string
+	for _, p := range f.Plans {
+		r, err := config.ParseDateRule(p.Date)
+		if err != nil {
+			continue
+		}
+		months := config.NewDateFilter(nil, p.Months, nil)
+		weekdays := config.NewDateFilter(p.Weekdays, nil, nil)
+		entry := fmt.Sprintf("plan %q", p.Title)
+		switch r.Type {
+		case config.RuleOnce:
+			if !months.Allows(r.Date) {
+				out = append(out, fmt.Sprintf("feed %q: %s: %s is in %s, not in its months (%s): it will never be published",
+					f.ID, entry, r.Date.Format(time.DateOnly), r.Date.Month(), strings.Join(p.Months, ", ")))
+			}
+			if !weekdays.Allows(r.Date) {
+				out = append(out, fmt.Sprintf("feed %q: %s: %s is a %s, not in its weekdays (%s): it will never be published",
+					f.ID, entry, r.Date.Format(time.DateOnly), r.Date.Weekday(), strings.Join(p.Weekdays, ", ")))
+			}
+		case config.RuleWeekly, config.RuleWeekdayOf:
+			if !weekdays.Allows(dateOnWeekday(r.Weekday)) {
+				out = append(out, fmt.Sprintf("feed %q: %s: its dates (%s) are %ss, not in its weekdays (%s): it will never be published",
+					f.ID, entry, p.Date, r.Weekday, strings.Join(p.Weekdays, ", ")))
+			}
+		case config.RuleYearly:
+			if !months.Allows(time.Date(2000, r.Month, 1, 0, 0, 0, 0, time.UTC)) {
+				out = append(out, fmt.Sprintf("feed %q: %s: its dates (%s) are in %s, not in its months (%s): it will never be published",
+					f.ID, entry, p.Date, r.Month, strings.Join(p.Months, ", ")))
+			}
+		}
+	}
+	return out
+}
+
+// dateOnWeekday is a date that is a wd: in the week of Sunday 2 January
+// 2000.
+func dateOnWeekday(wd time.Weekday) time.Time {
+	return time.Date(2000, 1, 2+int(wd), 0, 0, 0, 0, time.UTC)
 }

@@ -159,3 +159,37 @@ feeds:
 		t.Errorf("notes:\n%s\nwant one, of blue-hour alone", strings.Join(r.Notes, "\n"))
 	}
 }
+
+// check warns of a plan whose date rule names only dates that the plan's
+// own months or weekdays leave out (12 June 2027 and 13 June 2026 are
+// Saturdays: timeanddate.com's calendars), naming the feed, the plan, its
+// dates and the filter, and of such a date outside the window it says only
+// that: it will never be published.
+func TestPlanDatesFilteredOutWarning(t *testing.T) {
+	r := checkReportOf(t, `sites:
+  - {id: venue, latitude: 47.5, longitude: 9.7, timezone: Europe/Zurich}
+feeds:
+  - id: events
+    site: venue
+    days_ahead: 400
+    plans:
+      - {title: Rehearsal, date: 2027-06-12, weekdays: [fri]}
+      - {title: Frost check, date: every 04-25, months: [may, jun]}
+      - {title: Star party, date: saturday nearest new-moon, weekdays: [fri, sun]}
+      - {title: Film night, date: every friday, weekdays: [fri]}
+      - {title: Open day, date: 2027-06-12, months: [jun], weekdays: [sat]}
+      - {title: Last year, date: 2026-06-13, weekdays: [sun]}
+`, windowNow)
+	want := []string{
+		`feed "events": plan "Rehearsal": 2027-06-12 is a Saturday, not in its weekdays (fri): it will never be published`,
+		`feed "events": plan "Frost check": its dates (every 04-25) are in April, not in its months (may, jun): it will never be published`,
+		`feed "events": plan "Star party": its dates (saturday nearest new-moon) are Saturdays, not in its weekdays (fri, sun): it will never be published`,
+		`feed "events": plan "Last year": 2026-06-13 is a Saturday, not in its weekdays (sun): it will never be published`,
+	}
+	if !slices.Equal(r.Warnings, want) {
+		t.Errorf("warnings:\n%s\nwant:\n%s", strings.Join(r.Warnings, "\n"), strings.Join(want, "\n"))
+	}
+	if len(r.Notes) != 0 {
+		t.Errorf("notes:\n%s\nwant none", strings.Join(r.Notes, "\n"))
+	}
+}

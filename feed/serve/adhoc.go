@@ -346,9 +346,22 @@ func (q *AdhocQuery) parseUTC(get getter) error {
 func parseFloat(name, v string) (float64, error) {
 	f, err := strconv.ParseFloat(strings.TrimSpace(v), 64)
 	if err != nil || math.IsNaN(f) || math.IsInf(f, 0) {
-		return 0, &QueryError{Param: name, Value: v, Msg: "not a decimal number"}
+		msg := "not a decimal number"
+		if hint, ok := numberHints[name]; ok {
+			msg += " (" + hint + ")"
+		}
+		return 0, &QueryError{Param: name, Value: v, Msg: msg}
 	}
 	return f, nil
+}
+
+// numberHints say how to write the number of a parameter that is not one
+// ("2°", "120 m", "33°27′S"), as the configuration's hints for its keys do.
+var numberHints = map[string]string{
+	ParamLatitude:  "decimal degrees, south negative, e.g. -33.45 for 33°27′S",
+	ParamLongitude: "decimal degrees, west negative, e.g. -70.67 for 70°40′W",
+	ParamElevation: "metres above sea level, the number alone, e.g. 120",
+	ParamHorizon:   "the skyline's altitude in degrees, the number alone, e.g. 2; or points azimuth:altitude, e.g. 0:2,90:8",
 }
 
 func parseCoord(get getter, name string, limit float64) (float64, error) {

@@ -231,7 +231,11 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-title-control.yaml", "feeds[0].title", "North\rSun", "control character", "", 0},
 		{"bad-sites-shape.yaml", "sites", "3", "must be a list, not a number", "", 0},
 		{"bad-site-entry.yaml", "sites[1]", "south-field", "must be a mapping of keys, not text", "", 0},
-		{"bad-kinds-shape.yaml", "feeds[0].kinds", "sunrise", "must be a list, not text", "", 0},
+		{"bad-kinds-shape.yaml", "feeds[0].kinds", "sunrise", "must be a list, not text", `write it ["sunrise"]`, 0},
+		// one value where a list belongs: the value as written (a date, not
+		// a date and time) and the list of one to write
+		{"bad-dates-one.yaml", "feeds[0].kinds[0].dates", "2027-06-12", "must be a list, not a date", `write it ["2027-06-12"]`, 0},
+		{"bad-weekdays-one.yaml", "feeds[0].kinds[0].weekdays", "fri", "must be a list, not text", `write it ["fri"]`, 0},
 		{"bad-types.toml", "sites[0].latitude", `"95"`, "must be a number, not text", "", 2},
 		{"bad-types.json", "feeds[0].kinds[0].offset", "30", "a duration needs a unit", "", 3},
 		{"bad-types.json", "feeds[0].days_ahead", "10.5", "must be a whole number", "", 3},

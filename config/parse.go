@@ -724,6 +724,11 @@ var (
 // fractional numbers where a whole number is expected.
 func decodeHook() mapstructure.DecodeHookFunc {
 	return func(from reflect.Type, to reflect.Type, data any) (any, error) {
+		if to.Kind() == reflect.Slice {
+			if err := listTypeError(to, data); err != nil {
+				return nil, err
+			}
+		}
 		switch to {
 		case kindSpecType:
 			if s, ok := data.(string); ok {
@@ -812,6 +817,31 @@ func notMapping(data any) bool {
 		return false
 	}
 	return true
+}
+
+// listTypeError words one value where a list of to belongs, as it is
+// written (a YAML or TOML date as its date, not as a date and time), and,
+// for a list of names, dates or kinds, says to write it as a list of one:
+// `write it ["fri"]` for weekdays: fri, `write it ["2027-06-12"]` for
+// dates: 2027-06-12. nil for a list, for nothing and for a mapping, which
+// the decoder words.
+func listTypeError(to reflect.Type, data any) error {
+	value, what := showValue(data), describeValue(data)
+	switch x := data.(type) {
+	case nil, []any, map[string]any, map[any]any:
+		return nil
+	case time.Time:
+		if x.Equal(civilDate(x)) {
+			value, what = x.Format(time.DateOnly), "a date"
+		}
+	case toml.LocalDate:
+		value = x.String()
+	}
+	hint := ""
+	if to.Elem().Kind() == reflect.String || to.Elem() == kindSpecType {
+		hint = "write it [" + strconv.Quote(value) + "]" // quoted, as JSON needs it and YAML and TOML take it
+	}
+	return &valueError{Value: value, Msg: "must be a list, not " + what, Hint: hint}
 }
 
 // scalarTypeError words a value of the wrong type for to, naming what to

@@ -1136,9 +1136,10 @@ var byteUnits = map[string]float64{"b": 1, "bytes": 1, "kb": 1e3, "mb": 1e6}
 // numberTextHint says how to write, as a number, text that is not one
 // where key holds a number: the number alone when the text is a number and
 // the key's own unit ("write 120" for elevation "120m"), a fraction for a
-// percentage of max_illumination, the bytes of a size in kB or MB,
-// decimal degrees for a latitude or longitude in degrees and minutes; ""
-// for words ("lots"), which have no number to keep.
+// percentage of max_illumination, Celsius for a temperature in Fahrenheit,
+// the bytes of a size in kB or MB, decimal degrees for a latitude or
+// longitude in degrees and minutes; "" for words ("lots"), which have no
+// number to keep.
 func numberTextHint(key, x string) string {
 	n := len(x) - len(strings.TrimLeft(x, "+-.0123456789"))
 	num, unit := x[:n], strings.ToLower(strings.TrimSpace(x[n:]))
@@ -1155,6 +1156,9 @@ func numberTextHint(key, x string) string {
 		return "write the number of bytes, e.g. 1000000"
 	case err != nil:
 		return ""
+	case key == "temperature_c" && (unit == "f" || unit == "°f"):
+		c := math.Round((f-32)*5/9*10) / 10
+		return fmt.Sprintf("degrees Celsius, not Fahrenheit: write %g for %s °F", c, num)
 	case key == "max_illumination" && unit == "%":
 		return "write a fraction of 1: " + strconv.FormatFloat(f/100, 'g', -1, 64) + " for " + num + " %"
 	}

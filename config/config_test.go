@@ -241,7 +241,11 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-types.json", "feeds[0].kinds[0].offset", "30", "a duration needs a unit", "", 3},
 		{"bad-types.json", "feeds[0].days_ahead", "10.5", "must be a whole number", "", 3},
 		{"bad-lamps.yaml", "feeds[0].kinds[0].lamps", "night", "must be evening, morning or both", "", 0},
-		{"bad-natural.yaml", "feeds[0].kinds[0].natural", "nautical", "must be sunrise-sunset or civil", "", 0},
+		{"bad-natural.yaml", "feeds[0].kinds[0].natural", "nautical", "must be sunrise-sunset or civil", "what counts as natural light", 0},
+		// a value written with a capital or misspelt gets the one it likely means
+		{"bad-natural-case.yaml", "feeds[0].kinds[0].natural", "Civil", "must be sunrise-sunset or civil", `did you mean "civil"?`, 0},
+		{"bad-lamps-typo.yaml", "feeds[0].kinds[0].lamps", "bothe", "must be evening, morning or both", `did you mean "both"?`, 0},
+		{"bad-oversize-case.yaml", "service.oversize", "Trim", "must be warn, trim or fail", `did you mean "trim"?`, 0},
 		{"bad-latest-off.yaml", "feeds[0].kinds[0].latest_off", "25:00", "not a clock time", "HH:MM", 0},
 		{"bad-latest-off-number.yaml", "feeds[0].kinds[0].latest_off", "2300", "must be text, not a number", `write it "23:00"`, 0},
 		{"bad-plan-start-number.yaml", "feeds[0].plans[0].start", "2000", "must be text, not a number", `write it "20:00"`, 0},

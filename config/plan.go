@@ -718,10 +718,12 @@ func (ks *KindSpec) validateOptions(ps *problems, p string) {
 		return v != ""
 	}
 	if onlyLighting("lamps", ks.Lamps) && ks.Lamps != LampsEvening && ks.Lamps != LampsMorning && ks.Lamps != LampsBoth {
-		ps.add(p+".lamps", ks.Lamps, "must be evening, morning or both", "when the lamps run: after sunset, before sunrise, or half of each")
+		ps.add(p+".lamps", ks.Lamps, "must be evening, morning or both",
+			nearValue(ks.Lamps, []string{LampsEvening, LampsMorning, LampsBoth}, "when the lamps run: after sunset, before sunrise, or half of each"))
 	}
 	if onlyLighting("natural", ks.Natural) && ks.Natural != NaturalSunriseSunset && ks.Natural != NaturalCivil {
-		ps.add(p+".natural", ks.Natural, "must be sunrise-sunset or civil", "what counts as natural light: the Sun up, or civil twilight too")
+		ps.add(p+".natural", ks.Natural, "must be sunrise-sunset or civil",
+			nearValue(ks.Natural, []string{NaturalSunriseSunset, NaturalCivil}, "what counts as natural light: the Sun up, or civil twilight too"))
 	}
 	for _, c := range []struct{ key, v string }{{"latest_off", ks.LatestOff}, {"earliest_on", ks.EarliestOn}} {
 		if onlyLighting(c.key, c.v) {

@@ -1,6 +1,9 @@
 package config
 
-import "strings"
+import (
+	"fmt"
+	"strings"
+)
 
 // distance is the Levenshtein edit distance between a and b, counted in
 // bytes (names of the vocabulary are ASCII).
@@ -63,3 +66,13 @@ func closest(s string, candidates []string) string {
 // own suggestions pick it (a misspelt kind, month, zone or site id), or ""
 // when none is near enough: for the command line's ids (--site, --feed).
 func Suggest(s string, candidates []string) string { return closest(s, candidates) }
+
+// nearValue is the hint for a value v that is none of the values a key
+// takes: the one v likely means (`did you mean "civil"?` for "Civil",
+// "both" for "bothe"), else hint, what the values mean.
+func nearValue(v string, values []string, hint string) string {
+	if near := closest(v, values); near != "" {
+		return fmt.Sprintf("did you mean %q?", near)
+	}
+	return hint
+}

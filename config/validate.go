@@ -270,7 +270,8 @@ func (s *Service) validate(ps *problems) {
 	switch s.Oversize {
 	case OversizeWarn, OversizeTrim, OversizeFail, "":
 	default:
-		ps.add("service.oversize", s.Oversize, "must be warn, trim or fail", "warn publishes and says so; trim shortens the window; fail stops")
+		ps.add("service.oversize", s.Oversize, "must be warn, trim or fail",
+			nearValue(s.Oversize, []string{OversizeWarn, OversizeTrim, OversizeFail}, "warn publishes and says so; trim shortens the window; fail stops"))
 	}
 }
 

@@ -653,12 +653,14 @@ func TestLoadErrors(t *testing.T) {
 		t.Errorf("syntax error: %v", err)
 	}
 	for name, want := range map[string]string{
-		"syntax-error.yaml":  "cannot read the file as yaml: yaml: line 3: did not find expected ',' or ']'",
-		"syntax-error.toml":  "cannot read the file as toml: line 3, column",
-		"syntax-error.json":  "cannot read the file as json: line 3: invalid character '}'",
-		"not-a-mapping.yaml": "cannot read the file as yaml: line 2: the document is a list, not a mapping of keys (a configuration starts with keys such as sites: and feeds:)",
-		"two-documents.yaml": "cannot read the file as yaml: line 11: a second document begins here with ---, and heliocal reads one (write every site and feed under one sites: and one feeds:)",
-		"not-a-mapping.json": "cannot read the file as json: the document is a list, not a mapping of keys (a configuration starts with keys such as sites: and feeds:)",
+		"syntax-error.yaml": "cannot read the file as yaml: yaml: line 3: did not find expected ',' or ']'",
+		"syntax-error.toml": "cannot read the file as toml: line 3, column",
+		"syntax-error.json": "cannot read the file as json: line 3: invalid character '}'",
+		// text without quotes is said so, not "unable to parse float"
+		"syntax-bare-text.toml": `cannot read the file as toml: line 7: timezone = Europe/Zurich: text is written in quotes in TOML (write timezone = "Europe/Zurich")`,
+		"not-a-mapping.yaml":    "cannot read the file as yaml: line 2: the document is a list, not a mapping of keys (a configuration starts with keys such as sites: and feeds:)",
+		"two-documents.yaml":    "cannot read the file as yaml: line 11: a second document begins here with ---, and heliocal reads one (write every site and feed under one sites: and one feeds:)",
+		"not-a-mapping.json":    "cannot read the file as json: the document is a list, not a mapping of keys (a configuration starts with keys such as sites: and feeds:)",
 	} {
 		_, err = loadTestdata(t, name)
 		if !errors.Is(err, ErrUnreadable) || !strings.Contains(err.Error(), want) || !strings.HasPrefix(err.Error(), filepath.Join(testdata, name)+": ") {
@@ -675,6 +677,16 @@ func TestLoadErrors(t *testing.T) {
 		"sites:\n  - id: x\n  @latitude: 1\n":    "yaml: line 3: found character that cannot start any token",
 	} {
 		_, err = Parse(strings.NewReader(in), "yaml")
+		if !errors.Is(err, ErrUnreadable) || !strings.HasSuffix(err.Error(), want) {
+			t.Errorf("%q: %v\nwant it to end %q", in, err, want)
+		}
+	}
+	// a list of words and TOML's yes are written as TOML has them
+	for in, want := range map[string]string{
+		"[[feeds]]\nkinds = [sunrise, sunset]\n": `line 2: kinds = [sunrise, sunset]: text is written in quotes in TOML (write kinds = ["sunrise", "sunset"])`,
+		"[[feeds]]\nutc = yes # in UTC\n":        `line 2: utc = yes: not a TOML value (write utc = true)`,
+	} {
+		_, err = Parse(strings.NewReader(in), "toml")
 		if !errors.Is(err, ErrUnreadable) || !strings.HasSuffix(err.Error(), want) {
 			t.Errorf("%q: %v\nwant it to end %q", in, err, want)
 		}

@@ -17,6 +17,8 @@ import (
 	"strings"
 	"sync"
 	"time"
+	"unicode"
+	"unicode/utf8"
 
 	"github.com/go-viper/mapstructure/v2"
 	"github.com/pelletier/go-toml/v2"
@@ -307,6 +309,10 @@ func syntaxMessage(err error, data []byte) string {
 	switch {
 	case errors.As(err, &pos):
 		row, col := pos.Position()
+		if bare := tomlBareText(data, row); bare != "" {
+			msg = fmt.Sprintf("line %d: %s", row, bare) // not the parser's "incomplete number"
+			break
+		}
 		msg = fmt.Sprintf("line %d, column %d: %s%s", row, col, tomlValueAt(data, row, col), msg)
 	case errors.As(err, &js):
 		off := min(int(js.Offset), len(data))
@@ -367,6 +373,67 @@ func tomlValueAt(data []byte, row, col int) string {
 		return value + ": "
 	}
 	return key + ": " + value + ": "
+}
+
+// tomlBareText words line row of TOML data when its value is text written
+// without quotes (`timezone = Europe/Vienna`, `kinds = [sunrise, sunset]`),
+// which the TOML parser refuses as a malformed number: the line as written
+// and the line to write, `timezone = "Europe/Vienna"`; "" for other lines.
+func tomlBareText(data []byte, row int) string {
+	lines := bytes.Split(data, []byte("\n"))
+	if row < 1 || row > len(lines) {
+		return ""
+	}
+	key, value, ok := strings.Cut(strings.TrimSpace(strings.TrimRight(string(lines[row-1]), "\r")), "=")
+	key, value = strings.TrimSpace(key), strings.TrimSpace(value)
+	if i := strings.Index(value, " #"); i >= 0 { // a comment after the value
+		value = strings.TrimSpace(value[:i])
+	}
+	if !ok || key == "" || value == "" || strings.ContainsAny(key, "[{\"'") {
+		return ""
+	}
+	// quoted says w in quotes when it is text written bare (a word that
+	// begins with a letter and is none of TOML's own words), yes and no as
+	// TOML's true and false, else w
+	quoted := func(w string) (string, bool) {
+		w = strings.TrimSpace(w)
+		r, _ := utf8.DecodeRuneInString(w)
+		switch {
+		case !unicode.IsLetter(r), w == "true", w == "false", w == "inf", w == "nan", strings.ContainsAny(w, "\"'[]{}="):
+			return w, false
+		case strings.EqualFold(w, "yes"), strings.EqualFold(w, "on"):
+			return "true", true
+		case strings.EqualFold(w, "no"), strings.EqualFold(w, "off"):
+			return "false", true
+		}
+		return strconv.Quote(w), true
+	}
+	written := value
+	if inner, ok := strings.CutPrefix(value, "["); ok {
+		inner, ok = strings.CutSuffix(inner, "]")
+		if !ok {
+			return ""
+		}
+		parts, bare := strings.Split(inner, ","), false
+		for i, p := range parts {
+			var b bool
+			parts[i], b = quoted(p)
+			bare = bare || b
+		}
+		if !bare {
+			return ""
+		}
+		written = "[" + strings.Join(parts, ", ") + "]"
+	} else {
+		var bare bool
+		if written, bare = quoted(value); !bare {
+			return ""
+		}
+	}
+	if written == "true" || written == "false" {
+		return fmt.Sprintf("%s = %s: not a TOML value (write %s = %s)", key, value, key, written)
+	}
+	return fmt.Sprintf("%s = %s: text is written in quotes in TOML (write %s = %s)", key, value, key, written)
 }
 
 // quoteBudget bounds the bytes quoteTOMLDates has the TOML parser read

@@ -691,6 +691,20 @@ func TestLoadErrors(t *testing.T) {
 			t.Errorf("%q: %v\nwant it to end %q", in, err, want)
 		}
 	}
+	// JSON's usual slips are named after the decoder's words
+	for in, want := range map[string]string{
+		`{"sites":[{"id":"a","latitude":1,}]}`: "looking for beginning of object key string (JSON has no comma after the last item of a list or mapping)",
+		"{\"feeds\":[{\"id\":\"f\"},\n]}":      "line 2: invalid character ']' looking for beginning of value (JSON has no comma after the last item of a list or mapping)",
+		`{'sites':[]}`:                         `(JSON writes text and keys in double quotes: "sites")`,
+		"{\"sites\":[] // the places\n}":       "(JSON has no comments)",
+		`{sites:[]}`:                           `(JSON writes keys in double quotes: "sites")`,
+		`{"sites":[{"id":"a" "latitude":1}]}`:  "(a comma is missing before it)",
+	} {
+		_, err = Parse(strings.NewReader(in), "json")
+		if !errors.Is(err, ErrUnreadable) || !strings.HasSuffix(err.Error(), want) {
+			t.Errorf("%q: %v\nwant it to end %q", in, err, want)
+		}
+	}
 	_, err = Parse(strings.NewReader("{}"), "xml")
 	if err == nil || !strings.Contains(err.Error(), `unsupported format "xml"`) {
 		t.Errorf("format: %v", err)

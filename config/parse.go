@@ -317,7 +317,7 @@ func syntaxMessage(err error, data []byte) string {
 	case errors.As(err, &js):
 		off := min(int(js.Offset), len(data))
 		row := bytes.Count(data[:off], []byte("\n")) + 1
-		msg = fmt.Sprintf("line %d: %s", row, msg)
+		msg = fmt.Sprintf("line %d: %s%s", row, msg, jsonHint(msg, data[:off]))
 	default:
 		msg = yamlTabMessage(msg, data)
 	}
@@ -373,6 +373,30 @@ func tomlValueAt(data []byte, row, col int) string {
 		return value + ": "
 	}
 	return key + ": " + value + ": "
+}
+
+// jsonHint says what the usual slips that give the JSON decoder's syntax
+// error msg are, read before holds the document up to the error: a comma
+// before a closing bracket, text in single quotes, a comment, a key
+// without quotes, a missing comma; "" for other errors.
+func jsonHint(msg string, before []byte) string {
+	prev := bytes.TrimRight(before, " \t\r\n")
+	if len(prev) > 0 {
+		prev = bytes.TrimRight(prev[:len(prev)-1], " \t\r\n") // the character at fault
+	}
+	switch {
+	case (strings.HasPrefix(msg, "invalid character '}'") || strings.HasPrefix(msg, "invalid character ']'")) && bytes.HasSuffix(prev, []byte(",")):
+		return " (JSON has no comma after the last item of a list or mapping)"
+	case strings.HasPrefix(msg, `invalid character '\''`):
+		return ` (JSON writes text and keys in double quotes: "sites")`
+	case strings.HasPrefix(msg, "invalid character '/'") || strings.HasPrefix(msg, "invalid character '#'"):
+		return " (JSON has no comments)"
+	case strings.HasSuffix(msg, "looking for beginning of object key string"):
+		return ` (JSON writes keys in double quotes: "sites")`
+	case strings.HasPrefix(msg, `invalid character '"' after`):
+		return " (a comma is missing before it)"
+	}
+	return ""
 }
 
 // tomlBareText words line row of TOML data when its value is text written

@@ -1,0 +1,90 @@
+package main
+
+import (
+	"encoding/json"
+	"html"
+	"regexp"
+	"strings"
+	"testing"
+)
+
+// clockWord is a clock time in a title, nightWord a night named by its dates.
+var (
+	clockWord = regexp.MustCompile(`\b\d\d:\d\d\b`)
+	nightWord = regexp.MustCompile(`night of \d`)
+	// lampRow is a lamp period's title in a row: its length and target,
+	// its times in the time column
+	lampRow = regexp.MustCompile(`^Lamps on for \d+ (h|min)( \d\d min)?(, to reach 16 h|; 16 h not reached)$`)
+)
+
+// A row of the day-by-day table (/at) or of the builder's preview (/at.json)
+// shows an entry's times in its own column and the date in the row's: the
+// title says neither again ("16:16–22:40 Lamps on for 6 h 24 min, to reach
+// 16 h", not "16:16–22:40 Lamps on 16:16–22:40 (…)"; "18:08–Sun 05:17 Dark
+// sky, 11 h 09 min" in the row of Saturday, not "…, night of 5–6 December
+// 2026"), while the subscribed calendar keeps its titles with the times
+// ("Lamps on 16:16–22:40 (6 h 24 min, to reach 16 h)"), which a calendar app
+// shows apart from the entry's own times. Salzburg (47.8° N) in December
+// needs lamps every evening for a 16 h day and has dark windows; Tromsø
+// (69.65° N) in January has lamp periods across midnight around its polar
+// night, and Longyearbyen (78.2° N) in April nights without dark sky.
+func TestRowsSayTimesOnce(t *testing.T) {
+	ts := builderServer(t)
+	places := []string{
+		"lat=47.8&lon=13.06&tz=Europe/Vienna&start=2026-12-05",
+		"lat=69.65&lon=18.96&tz=Europe/Oslo&start=2027-01-02",
+		"lat=78.2&lon=15.6&tz=Arctic/Longyearbyen&start=2027-04-10",
+	}
+	const kinds = "&kinds=golden-hour,blue-hour,dark-window,sunset&lighting=16h"
+	lamps := 0
+	check := func(where, when, title string) {
+		if when != "" && clockWord.MatchString(title) {
+			t.Errorf("%s: %q beside %q says a time again", where, title, when)
+		}
+		if nightWord.MatchString(title) {
+			t.Errorf("%s: %q names the night by its dates beside the row's date", where, title)
+		}
+		if strings.HasPrefix(title, "Lamps on") {
+			lamps++
+			if !lampRow.MatchString(title) {
+				t.Errorf("%s: lamp row %q, want \"Lamps on for <length>, to reach 16 h\"", where, title)
+			}
+		}
+	}
+	for _, place := range places {
+		q := place + kinds
+		page := getOK(t, ts.URL+"/at?"+q+"&days=14")
+		body, _, _ := strings.Cut(page[strings.Index(page, "<tbody>"):], "</tbody>")
+		feed := getOK(t, ts.URL+"/at.ics?"+q+"&days=14")
+		for _, m := range tableItem.FindAllStringSubmatch(body, -1) {
+			item := html.UnescapeString(m[1])
+			when := ""
+			if tm := tableTime.FindString(item); tm != "" {
+				when = strings.TrimSuffix(strings.TrimPrefix(tm, `<span class="t">`), "</span> ")
+			}
+			title := tableTime.ReplaceAllString(item, "")
+			check("/at?"+q, when, title)
+			// the calendar's entry keeps the times in its title
+			if strings.HasPrefix(title, "Lamps on") && !strings.Contains(when, " ") &&
+				!strings.Contains(feed, "SUMMARY:Lamps on "+when+" (") {
+				t.Errorf("/at.ics?%s: no entry titled \"Lamps on %s (…)\" for the row %q", q, when, when+" "+title)
+			}
+		}
+		var res struct {
+			Days []struct {
+				Entries []struct{ Title, When string }
+			}
+		}
+		if err := json.Unmarshal([]byte(getOK(t, ts.URL+"/at.json?"+q)), &res); err != nil {
+			t.Fatal(err)
+		}
+		for _, d := range res.Days {
+			for _, e := range d.Entries {
+				check("/at.json?"+q, e.When, e.Title)
+			}
+		}
+	}
+	if lamps == 0 {
+		t.Error("no lamp period in the rows")
+	}
+}

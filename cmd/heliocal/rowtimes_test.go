@@ -12,6 +12,9 @@ import (
 var (
 	clockWord = regexp.MustCompile(`\b\d\d:\d\d\b`)
 	nightWord = regexp.MustCompile(`night of \d`)
+	// longDate is a date with its month in full: the table's prose writes
+	// its dates as the lamp notes do, "until 2 Jul"
+	longDate = regexp.MustCompile(`\d (January|February|March|April|June|July|August|September|October|November|December)\b`)
 	// lampRow is a lamp period's title in a row: its length and target,
 	// its times in the time column
 	lampRow = regexp.MustCompile(`^Lamps on for \d+ (h|min)( \d\d min)?(, to reach 16 h|; 16 h not reached)$`)
@@ -55,6 +58,9 @@ func TestRowsSayTimesOnce(t *testing.T) {
 		q := place + kinds
 		page := getOK(t, ts.URL+"/at?"+q+"&days=14")
 		body, _, _ := strings.Cut(page[strings.Index(page, "<tbody>"):], "</tbody>")
+		if m := longDate.FindString(page); m != "" {
+			t.Errorf("/at?%s: a date written %q: the page's prose writes \"2 Jul\"", q, m)
+		}
 		feed := getOK(t, ts.URL+"/at.ics?"+q+"&days=14")
 		for _, m := range tableItem.FindAllStringSubmatch(body, -1) {
 			item := html.UnescapeString(m[1])

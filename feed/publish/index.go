@@ -156,7 +156,7 @@ func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, 
 		// a UTC date (RenderOptions.Generated), and the page says so: a
 		// chart's today is its site's local date, which near midnight is
 		// the day before or after
-		v.Generated = l.generated.Format("2 January 2006")
+		v.Generated = l.generated.Format("2 Jan 2006") // as the charts write their dates
 	}
 	events, size := 0, int64(0)
 	bySite := map[string][]feedView{}

@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"regexp"
 	"slices"
 	"strconv"
 	"strings"
@@ -618,12 +619,19 @@ func TestIndexSaysWhoseDate(t *testing.T) {
 	for _, h := range doc.all("header") {
 		header += h.text()
 	}
-	if want := "computed on 4 December 2015 (UTC)."; !strings.Contains(header, want) {
+	// one form of date on the page, the captions' "5 Dec 2015"
+	if want := "computed on 4 Dec 2015 (UTC)."; !strings.Contains(header, want) {
 		t.Errorf("header %q: want it to say %q", header, want)
 	}
 	caps := doc.all("figcaption")
 	if len(caps) == 0 {
 		t.Fatal("no chart caption")
+	}
+	longMonth := regexp.MustCompile(`\d (January|February|March|April|June|July|August|September|October|November|December)\b`)
+	for _, c := range append(caps, doc.all("header")...) {
+		if m := longMonth.FindString(c.text()); m != "" {
+			t.Errorf("%q writes %s in full, the page's dates read \"5 Dec 2015\"", c.text(), m)
+		}
 	}
 	for _, c := range caps {
 		if want := "Today at this site (5 Dec 2015) is marked"; !strings.Contains(c.text(), want) {

@@ -5,10 +5,14 @@ import (
 	"crypto/sha256"
 	"encoding/hex"
 	"encoding/json"
+	"errors"
 	"fmt"
+	"io/fs"
 	"os"
 	"path/filepath"
 	"runtime/debug"
+	"strings"
+	"syscall"
 	"time"
 
 	"github.com/spf13/cobra"
@@ -128,7 +132,7 @@ func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Tim
 	}
 	st, err := publish.Publish(ctx, srcs, opts, w)
 	if err != nil {
-		return err
+		return outDirFailed(outField, out, err)
 	}
 	if o.quiet { // else the summary has listed the oversize feeds
 		for _, w := range publish.Warnings(st) {
@@ -163,6 +167,59 @@ func checkOutDir(field, out string) error {
 		}
 	}
 }
+
+// outDirFailed words err, a failed publish into out (given by field: --out
+// or service.out_dir), when the directory cannot be written: one the user may
+// not write to or create, or one on a read-only file system, is named with
+// the flag or key that gave it and a hint, not by the temporary file or lock
+// file the publish tried first ("open public/.farm-sun.ics.tmp-81…: permission
+// denied"). What the publish says of the files it left (the writer keeps
+// nothing half-written: "nothing was changed: …") follows. It stays a
+// run-time failure (exit 1): out was checked to be a directory, or to be one
+// that can be created, before (checkOutDir). Other errors are returned as
+// they are.
+func outDirFailed(field, out string, err error) error {
+	var pe *fs.PathError
+	if !errors.As(err, &pe) || !sameTree(pe.Path, out) {
+		return err
+	}
+	hint := "give a directory this user may write to, or change its permissions"
+	switch {
+	case errors.Is(pe.Err, fs.ErrPermission):
+	case errors.Is(pe.Err, syscall.EROFS):
+		hint = "give a directory on a file system that can be written"
+	default:
+		return err
+	}
+	what := "cannot write into it"
+	if pe.Op == "mkdir" {
+		what = "cannot create it"
+	}
+	// what the publish added after the failure: "; nothing was changed: …"
+	_, tail, _ := strings.Cut(err.Error(), pe.Error())
+	return &outDirError{msg: fmt.Sprintf("%s: %q: %s (%v; %s)%s", field, out, what, pe.Err, hint, tail), err: err}
+}
+
+// sameTree reports whether the path p is the directory out, inside it, or
+// one of the directories above it (one MkdirAll creates on the way).
+func sameTree(p, out string) bool {
+	p, out = filepath.Clean(p), filepath.Clean(out)
+	inside := func(a, b string) bool { // a is b or under it
+		r, err := filepath.Rel(b, a)
+		return err == nil && r != ".." && !strings.HasPrefix(r, ".."+string(filepath.Separator))
+	}
+	return inside(p, out) || inside(out, p)
+}
+
+// outDirError is a failure to write into the output directory, worded by
+// outDirFailed; it unwraps to the publish's error.
+type outDirError struct {
+	msg string
+	err error
+}
+
+func (e *outDirError) Error() string { return e.msg }
+func (e *outDirError) Unwrap() error { return e.err }
 
 // publishingWhat says which feeds a publish writes: "3 feeds", or for a
 // shard "shard 0/2: 1 feed of 3".

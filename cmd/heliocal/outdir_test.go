@@ -1,0 +1,99 @@
+package main
+
+import (
+	"errors"
+	"fmt"
+	"io/fs"
+	"os"
+	"path/filepath"
+	"strings"
+	"syscall"
+	"testing"
+)
+
+// A publish that cannot write into its output directory names the
+// directory and the flag or key it came from, with a hint, not the
+// temporary file or lock file it tried first; it stays a run-time failure
+// (exit 1, as the help's EXIT STATUS says of a file that cannot be
+// written), and errors.Is still finds the system's error. The errors are
+// those the publish returns (feed/publish: writeTemp, lock, prepare's
+// MkdirAll, endUndo), with the errno of a directory without write
+// permission (EACCES), of a read-only file system (EROFS) and of a full
+// disk (ENOSPC, left as it is).
+func TestOutDirFailedWords(t *testing.T) {
+	pathErr := func(op, path string, errno syscall.Errno) error { return &fs.PathError{Op: op, Path: path, Err: errno} }
+	for _, tc := range []struct {
+		name, field, out string
+		err              error
+		want             string
+	}{
+		{"temporary file", "--out", "ro",
+			fmt.Errorf("publish: write farm-sun.ics: %w", pathErr("open", filepath.Join("ro", ".farm-sun.ics.tmp-1792958586"), syscall.EACCES)),
+			`--out: "ro": cannot write into it (permission denied; give a directory this user may write to, or change its permissions)`},
+		{"lock file", "service.out_dir", "public",
+			fmt.Errorf("publish: lock %[1]s: %[2]w", filepath.Join("public", ".heliocal-publish.lock"), pathErr("open", filepath.Join("public", ".heliocal-publish.lock"), syscall.EACCES)),
+			`service.out_dir: "public": cannot write into it (permission denied; give a directory this user may write to, or change its permissions)`},
+		{"directory not created", "--out", filepath.Join("srv", "sky", "feeds"),
+			fmt.Errorf("publish: output directory: %w", pathErr("mkdir", filepath.Join("srv", "sky"), syscall.EACCES)),
+			`--out: "` + filepath.Join("srv", "sky", "feeds") + `": cannot create it (permission denied; give a directory this user may write to, or change its permissions)`},
+		{"read-only file system", "--out", "/mnt/sky",
+			fmt.Errorf("publish: write farm-sun.ics: %w", pathErr("open", "/mnt/sky/.farm-sun.ics.tmp-1", syscall.EROFS)),
+			`--out: "/mnt/sky": cannot write into it (read-only file system; give a directory on a file system that can be written)`},
+		{"what was kept", "--out", "sky",
+			fmt.Errorf("%w; nothing was changed: the files published before are as they were",
+				fmt.Errorf("publish: replace %s: %w", filepath.Join("sky", "farm-sun.ics"), pathErr("rename", filepath.Join("sky", "farm-sun.ics"), syscall.EPERM))),
+			`--out: "sky": cannot write into it (operation not permitted; give a directory this user may write to, or change its permissions); nothing was changed: the files published before are as they were`},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			err := outDirFailed(tc.field, tc.out, tc.err)
+			if err.Error() != tc.want {
+				t.Errorf("message\n%s\nwant\n%s", err, tc.want)
+			}
+			if code := exitCode(err); code != exitFailure {
+				t.Errorf("exit %d, want %d", code, exitFailure)
+			}
+			if !errors.Is(err, tc.err) {
+				t.Errorf("%v does not unwrap to the publish's error", err)
+			}
+		})
+	}
+	// a full disk, or a file outside the directory, is said as it was
+	for _, err := range []error{
+		fmt.Errorf("publish: write farm-sun.ics: %w", pathErr("write", filepath.Join("sky", ".farm-sun.ics.tmp-1"), syscall.ENOSPC)),
+		fmt.Errorf("publish: %w", pathErr("open", filepath.Join("elsewhere", "x"), syscall.EACCES)),
+	} {
+		if got := outDirFailed("--out", "sky", err); got != err {
+			t.Errorf("%v worded again as %v", err, got)
+		}
+	}
+}
+
+// Publishing into a directory the user may not write to, or under one,
+// fails (exit 1) naming the directory and the flag, with the hint, and
+// leaves the directory as it was. The superuser writes into any directory:
+// the test needs another user.
+func TestPublishUnwritableOutDir(t *testing.T) {
+	if os.Geteuid() == 0 {
+		t.Skip("run as root, who may write into any directory")
+	}
+	ro := filepath.Join(t.TempDir(), "ro")
+	if err := os.Mkdir(ro, 0o555); err != nil {
+		t.Fatal(err)
+	}
+	t.Cleanup(func() { os.Chmod(ro, 0o755) })
+	for _, tc := range []struct{ out, want string }{
+		{ro, `heliocal: --out: "` + ro + `": cannot write into it (permission denied; give a directory this user may write to, or change its permissions)` + "\n"},
+		{filepath.Join(ro, "sub"), `heliocal: --out: "` + filepath.Join(ro, "sub") + `": cannot create it (permission denied; give a directory this user may write to, or change its permissions)` + "\n"},
+	} {
+		code, _, errOut := runCLI(t, "publish", "--quiet", "--out", tc.out)
+		if code != exitFailure || errOut != tc.want {
+			t.Errorf("exit %d, %q; want %d and %q", code, errOut, exitFailure, tc.want)
+		}
+		if strings.Contains(errOut, ".tmp-") {
+			t.Errorf("%q names a temporary file", errOut)
+		}
+	}
+	if left, err := os.ReadDir(ro); err != nil || len(left) != 0 {
+		t.Errorf("the directory holds %v (%v), want it as it was, empty", left, err)
+	}
+}

@@ -582,8 +582,94 @@ func yamlTabMessage(msg string, data []byte) string {
 		if line <= len(lines) && tabbed(lines[line-1]) {
 			return fmt.Sprintf("yaml: line %d: a tab in the indentation (YAML indents with spaces only)", line)
 		}
+	case strings.HasPrefix(what, "did not find expected key"), strings.HasPrefix(what, "did not find expected '-' indicator"):
+		// the decoder names the line where the block began, often line 1
+		if n, indent := yamlMisaligned(lines, line); n > 0 {
+			return fmt.Sprintf("yaml: line %d: indented by %d, unlike the lines above it (%s)", n, indent, what)
+		}
 	}
 	return msg
+}
+
+// yamlMisaligned finds the first line from line from on whose indentation
+// does not continue the blocks above it: a line indented to no level open
+// above it, more deeply than a block the line before opens, or a key among
+// list items ("- ") or a list item among keys at one level (a list may
+// start at its key's own indentation). It returns the line and its
+// indentation in spaces, or 0 when every line continues its blocks. Block
+// text (after | or >) and lines inside a flow list or mapping ([…], {…})
+// are skipped.
+func yamlMisaligned(lines [][]byte, from int) (int, int) {
+	type level struct {
+		indent int
+		seq    bool // its lines are list items
+		items  bool // a list at the indentation of the key before it
+	}
+	var stack []level
+	opens, prevIndent := true, 0 // the line before opens a block; its indentation
+	text, flow := -1, 0          // the indentation of a key of block text; open flow brackets
+	for n := max(from, 1); n <= len(lines); n++ {
+		l := strings.TrimRight(string(lines[n-1]), "\r")
+		t := strings.TrimLeft(l, " ")
+		ind := len(l) - len(t)
+		if t == "" || t[0] == '#' {
+			continue
+		}
+		if text >= 0 && ind > text {
+			continue
+		}
+		text = -1
+		if flow > 0 || strings.HasPrefix(t, "---") || strings.HasPrefix(t, "...") || strings.HasPrefix(t, "\t") {
+			flow += strings.Count(t, "[") + strings.Count(t, "{") - strings.Count(t, "]") - strings.Count(t, "}")
+			continue
+		}
+		seq := t == "-" || strings.HasPrefix(t, "- ")
+		popped := false
+		for len(stack) > 0 && stack[len(stack)-1].indent > ind {
+			stack, popped = stack[:len(stack)-1], true
+		}
+		switch {
+		case len(stack) == 0 || stack[len(stack)-1].indent < ind:
+			if popped || !opens {
+				return n, ind
+			}
+			stack = append(stack, level{indent: ind, seq: seq})
+		default:
+			top := &stack[len(stack)-1]
+			switch {
+			case seq == top.seq:
+				top.items = false
+			case seq && opens && ind == prevIndent: // "kinds:" then "- sunrise" below it
+				top.items = true
+			case seq && top.items:
+			default:
+				return n, ind
+			}
+		}
+		// what this line opens: a key without a value, a list item, a
+		// key of block text; the flow brackets it leaves open
+		body := t
+		if seq {
+			body = strings.TrimSpace(strings.TrimPrefix(t, "-"))
+		}
+		if i := strings.Index(body, " #"); i >= 0 {
+			body = strings.TrimSpace(body[:i])
+		}
+		opens = seq || strings.HasSuffix(body, ":")
+		if strings.HasSuffix(body, "|") || strings.HasSuffix(body, ">") || strings.HasSuffix(body, "|-") || strings.HasSuffix(body, ">-") {
+			text = ind
+		}
+		flow = strings.Count(body, "[") + strings.Count(body, "{") - strings.Count(body, "]") - strings.Count(body, "}")
+		prevIndent = ind
+		if seq && body != "" && !strings.HasPrefix(body, "[") && !strings.HasPrefix(body, "{") {
+			// the keys of a list item's mapping line up with its first
+			key := ind + len(t) - len(strings.TrimLeft(strings.TrimPrefix(t, "-"), " "))
+			if strings.Contains(body, ": ") || strings.HasSuffix(body, ":") {
+				stack = append(stack, level{indent: key})
+			}
+		}
+	}
+	return 0, 0
 }
 
 func oneLine(s string) string {

@@ -206,6 +206,8 @@ func TestValidationErrors(t *testing.T) {
 		{"offset-all-day.yaml", "feeds[0].kinds[0].offset", "1h", "has no meaning for daily-summary", "", 0},
 		{"bad-alarm-negative.yaml", "feeds[0].alarm", "-5m", "must not be negative", "", 0},
 		{"bad-alarm-long.yaml", "feeds[0].alarm", "200h", "must be at most 7 days", "", 0},
+		{"bad-alarm-bool.yaml", "feeds[0].kinds[0].alarm", "false", "must be a duration such as \"30m\", not true/false", `write "0s" for none`, 0},
+		{"bad-band-word.yaml", "feeds[0].kinds[0].high", `"high"`, "must be a number, not text", "the Sun's altitude in degrees, e.g. 6", 0},
 		{"bad-max-illumination.yaml", "feeds[0].kinds[0].max_illumination", "1.5", "must be within 0..1", "", 0},
 		{"bad-max-illumination-percent.yaml", "feeds[0].kinds[0].max_illumination", `"25%"`, "must be a number, not text", "0.25 for 25 %", 0},
 		{"max-illumination-wrong-kind.yaml", "feeds[0].kinds[0].max_illumination", "0.5", "applies only to dark-window", "", 0},

@@ -1257,6 +1257,12 @@ func describeValue(v any) string {
 
 func typeHint(path string, t reflect.Type, v any) string {
 	key := fieldKey(path)
+	if t == durationType { // alarm: true, offset: [30m]
+		if b, ok := v.(bool); ok && !b {
+			return `write "0s" for none`
+		}
+		return `write a number with a unit, e.g. "15m" or "1h"`
+	}
 	if x, ok := v.(string); ok && (t.Kind() == reflect.Float64 || t.Kind() == reflect.Int) {
 		x = strings.TrimSpace(x)
 		if _, err := strconv.ParseFloat(x, 64); err == nil {
@@ -1299,7 +1305,7 @@ func fieldKey(path string) string {
 var numberUnits = map[string][]string{
 	"elevation":     {"m", "metre", "metres", "meter", "meters"},
 	"pressure_hpa":  {"hpa", "mbar", "mb"},
-	"temperature_c": {"c", "°c", "°", "degc"},
+	"temperature_c": {"c", "°c", "°", "degc", "celsius"},
 	"days_back":     {"d", "day", "days"},
 	"days_ahead":    {"d", "day", "days"},
 	"low":           {"°", "deg", "degrees"},
@@ -1315,8 +1321,8 @@ var byteUnits = map[string]float64{"b": 1, "bytes": 1, "kb": 1e3, "mb": 1e6}
 // the key's own unit ("write 120" for elevation "120m"), a fraction for a
 // percentage of max_illumination, Celsius for a temperature in Fahrenheit,
 // the bytes of a size in kB or MB, decimal degrees for a latitude or
-// longitude in degrees and minutes; "" for words ("lots"), which have no
-// number to keep.
+// longitude in degrees and minutes; for words ("lots"), which have no
+// number to keep, what the key's number is, or "".
 func numberTextHint(key, x string) string {
 	n := len(x) - len(strings.TrimLeft(x, "+-.0123456789"))
 	num, unit := x[:n], strings.ToLower(strings.TrimSpace(x[n:]))
@@ -1332,7 +1338,7 @@ func numberTextHint(key, x string) string {
 		}
 		return "write the number of bytes, e.g. 1000000"
 	case err != nil:
-		return ""
+		return numberWords[key] // "high" for high
 	case key == "temperature_c" && (unit == "f" || unit == "°f"):
 		c := math.Round((f-32)*5/9*10) / 10
 		return fmt.Sprintf("degrees Celsius, not Fahrenheit: write %g for %s °F", c, num)
@@ -1347,7 +1353,17 @@ func numberTextHint(key, x string) string {
 	if key == "days_back" || key == "days_ahead" {
 		return "write a number of days, e.g. 365 for a year" // "1y"
 	}
-	return ""
+	return numberWords[key]
+}
+
+// numberWords say what the number of a key is, for text that holds none.
+var numberWords = map[string]string{
+	"elevation":        "metres above sea level, e.g. 120",
+	"pressure_hpa":     "the air pressure at the site in hPa, e.g. 1013",
+	"temperature_c":    "degrees Celsius, e.g. -5",
+	"low":              "the Sun's altitude in degrees, e.g. -4",
+	"high":             "the Sun's altitude in degrees, e.g. 6",
+	"max_illumination": "the Moon's illuminated fraction, e.g. 0.25",
 }
 
 // nameHint says how to write a value that is not text where key holds

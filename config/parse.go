@@ -582,6 +582,10 @@ func yamlTabMessage(msg string, data []byte) string {
 		if line <= len(lines) && tabbed(lines[line-1]) {
 			return fmt.Sprintf("yaml: line %d: a tab in the indentation (YAML indents with spaces only)", line)
 		}
+	case strings.HasPrefix(what, "mapping values are not allowed") && line <= len(lines):
+		if hint := yamlColonHint(lines, line); hint != "" {
+			return msg + " (" + hint + ")"
+		}
 	case strings.HasPrefix(what, "did not find expected key"), strings.HasPrefix(what, "did not find expected '-' indicator"):
 		// the decoder names the line where the block began, often line 1
 		if n, indent := yamlMisaligned(lines, line); n > 0 {
@@ -589,6 +593,31 @@ func yamlTabMessage(msg string, data []byte) string {
 		}
 	}
 	return msg
+}
+
+// yamlColonHint says why line n of a YAML document has a key where none
+// may be: its value holds ": " (`name: North: Field`), which YAML reads
+// as a second key, or it is indented deeper than the line above it, which
+// opens no block; "" otherwise.
+func yamlColonHint(lines [][]byte, n int) string {
+	l := strings.TrimRight(string(lines[n-1]), "\r")
+	t := strings.TrimLeft(l, " ")
+	body := strings.TrimSpace(strings.TrimPrefix(t, "- "))
+	if key, value, ok := strings.Cut(body, ": "); ok && strings.Contains(value, ": ") && !strings.ContainsAny(value[:1], "\"'[{") {
+		return fmt.Sprintf("a value with \": \" in it goes in quotes: %s: %q", key, strings.TrimSpace(value))
+	}
+	for p := n - 1; p >= 1; p-- {
+		prev := strings.TrimRight(string(lines[p-1]), "\r")
+		pt := strings.TrimLeft(prev, " ")
+		if pt == "" || pt[0] == '#' {
+			continue
+		}
+		if len(l)-len(t) > len(prev)-len(pt) && !strings.HasSuffix(pt, ":") && !strings.HasPrefix(pt, "- ") {
+			return fmt.Sprintf("the line is indented deeper than line %d above it", p)
+		}
+		break
+	}
+	return ""
 }
 
 // yamlMisaligned finds the first line from line from on whose indentation

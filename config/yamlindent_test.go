@@ -62,3 +62,19 @@ func TestYAMLMisalignedNotInValidFiles(t *testing.T) {
 		t.Errorf("%d YAML files read, want the configurations of the tests and the demo (over 100)", read)
 	}
 }
+
+// A key where none may be ("mapping values are not allowed in this
+// context") says why: a value holding ": ", which YAML reads as a second
+// key, or a line indented deeper than the one above it.
+func TestYAMLColonInValue(t *testing.T) {
+	for in, want := range map[string]string{
+		"sites:\n  - id: a\n    name: Ridge: north side\n":                   `yaml: line 3: mapping values are not allowed in this context (a value with ": " in it goes in quotes: name: "Ridge: north side")`,
+		"feeds:\n  - id: f\n    plans:\n      - title: Film: the night\n":    `yaml: line 4: mapping values are not allowed in this context (a value with ": " in it goes in quotes: title: "Film: the night")`,
+		"sites:\n  - id: a\n    latitude: 1\n     longitude: 2\nfeeds: []\n": "yaml: line 4: mapping values are not allowed in this context (the line is indented deeper than line 3 above it)",
+	} {
+		_, err := Parse(strings.NewReader(in), "yaml")
+		if !errors.Is(err, ErrUnreadable) || !strings.HasSuffix(err.Error(), want) {
+			t.Errorf("%q: %v\nwant it to end %q", in, err, want)
+		}
+	}
+}

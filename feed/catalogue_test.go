@@ -1121,7 +1121,7 @@ func TestAllDayOrderByValue(t *testing.T) {
 
 // A longest (or shortest) day that rounds to the minute onto the threshold
 // it does not cross is given to the second, so the note never reads
-// "never reaches 14 h (longest 14 h 00 min)"; otherwise to the minute.
+// "never reaches 14 h (longest 14 h)"; otherwise to the minute.
 func TestNotReachedTextNearThreshold(t *testing.T) {
 	d, last, june, dec := date("2027-01-01"), date("2027-12-31"), date("2027-06-21"), date("2027-12-22")
 	for _, c := range []struct {
@@ -1158,7 +1158,7 @@ func TestSummaryTitlePolarNight(t *testing.T) {
 	specs := []config.KindSpec{{Kind: mustKinds(t, "daily-summary")[0]}}
 	for _, tc := range []struct{ date, title string }{
 		{"2027-12-21", "Polar night: no daylight"},
-		{"2027-06-21", "Daylight 24 h 00 min"},
+		{"2027-06-21", "Daylight 24 h"},
 	} {
 		es, err := sk.Entries(context.Background(), s, "f", specs, date(tc.date), date(tc.date))
 		if err != nil {

@@ -18,7 +18,7 @@ func TestDayChangeWording(t *testing.T) {
 		39 * time.Second:                 "+39 s",
 		-(2*time.Minute + 5*time.Second): "−2 min 05 s",
 		102*time.Minute + 55*time.Second: "+1 h 42 min 55 s",
-		-(61 * time.Minute):              "−1 h 01 min 00 s",
+		-(61 * time.Minute):              "−1 h 01 min",
 	} {
 		if got := Change(d); got != want {
 			t.Errorf("Change(%v) = %q, want %q", d, got, want)

@@ -460,7 +460,7 @@ func TestLightingPolarNightLimits(t *testing.T) {
 	}
 	e = run("06:00", "21:00")
 	if e.Start.Format("15:04") != "06:00" || e.End.Format("15:04") != "21:00" || !e.Facts.Short ||
-		!strings.Contains(e.Title, "(15 h 00 min; 16 h not reached)") {
+		!strings.Contains(e.Title, "(15 h; 16 h not reached)") {
 		t.Errorf("%s–%s %q short %v", e.Start, e.End, e.Title, e.Facts.Short)
 	}
 }

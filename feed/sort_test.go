@@ -78,7 +78,7 @@ func TestSortEntriesAllDay(t *testing.T) {
 		day(KindPlan, "Open day", "1"),
 		day("dark-window", "No dark sky on the night of 19–20 April 2027", "2"),
 		{Kind: "moonrise", Title: "Moonrise", UID: "0", Start: d, Date: d},
-		day("daily-summary", "Daylight 24 h 00 min", "3"),
+		day("daily-summary", "Daylight 24 h", "3"),
 		day("civil-dawn", "No civil dusk or dawn tonight", "4"),
 		day("photoperiod:14h", "b", "5"),
 		day("photoperiod:12h", "a", "6"),

@@ -281,24 +281,27 @@ func twoDigits(n int) string {
 
 // Durations are written one way in every title, description and table:
 // hours, minutes and seconds, the first unit as a plain number and each
-// later one in two digits, "14 h 02 min", "1 min 05 s", "48 min". A measured
-// duration (a day length, a window, a change) is rounded to the unit it is
-// shown to, half a unit up, and keeps its zero units ("12 h 00 min"); a
-// span between two instants is taken between the instants as shown, to the
-// second (see ToSecond). An amount from the configuration ("1 h before
-// sunset", "past 12 h 30 min") is written exactly, its zero units at the
-// end left out.
+// later one in two digits, "14 h 02 min", "1 min 05 s", "48 min", and zero
+// units at the end left out, "14 h", "1 h 00 min 05 s": a lamp period of
+// 14 h beside its target reads "14 h, to reach 14 h", not "14 h 00 min, to
+// reach 14 h". A measured duration (a day length, a window, a change) is
+// rounded to the unit it is shown to, half a unit up, and one that rounds to
+// nothing is "0 min" (or "0 s"); a span between two instants is taken
+// between the instants as shown, to the second (see ToSecond). An amount
+// from the configuration ("1 h before sunset", "past 12 h 30 min") is
+// written exactly.
 
 // Length writes a measured duration rounded to unit (time.Minute or
-// time.Second): "9 h 05 min", "48 min", "0 min", "1 h 42 min 55 s".
+// time.Second): "9 h 05 min", "48 min", "12 h", "0 min", "1 h 42 min 55 s".
 func Length(d, unit time.Duration) string { return string(appendDuration(nil, d, unit, false)) }
 
 // Amount writes a configured duration exactly, without zero units at the
 // end: "30 min", "1 h", "1 h 05 min", "45 s".
 func Amount(d time.Duration) string { return string(appendDuration(nil, d, time.Second, true)) }
 
-// appendDuration appends d, rounded to unit, as the rule above says; trim
-// leaves out zero units at the end.
+// appendDuration appends d, rounded to unit, as the rule above says,
+// leaving out zero units at the end; a zero duration is written in the unit
+// it is shown to ("0 min", "0 s"), or in hours when trim ("0 h", an amount).
 func appendDuration(b []byte, d, unit time.Duration, trim bool) []byte {
 	d = d.Round(unit)
 	parts := [3]int{int(d / time.Hour), int(d % time.Hour / time.Minute), int(d % time.Minute / time.Second)}
@@ -307,7 +310,7 @@ func appendDuration(b []byte, d, unit time.Duration, trim bool) []byte {
 	if unit < time.Minute {
 		last = 2
 	}
-	if trim {
+	if trim || d != 0 {
 		for last > 0 && parts[last] == 0 {
 			last--
 		}
@@ -327,8 +330,9 @@ func appendDuration(b []byte, d, unit time.Duration, trim bool) []byte {
 	return b
 }
 
-// hm writes a measured duration to the minute: "9 h 05 min", "48 min";
-// one that lasts but rounds to no minute is "under 1 min", never "0 min".
+// hm writes a measured duration to the minute: "9 h 05 min", "48 min",
+// "14 h"; one that lasts but rounds to no minute is "under 1 min", never
+// "0 min".
 func hm(d time.Duration) string { return string(appendHM(nil, d)) }
 
 // appendHM appends hm(d) to b.
@@ -348,6 +352,8 @@ func appendHM(b []byte, d time.Duration) []byte {
 	}
 	h, m := int64(mins/60), int(mins%60)
 	switch {
+	case h > 0 && m == 0: // whole hours: "14 h", as a target or an amount
+		return append(strconv.AppendInt(b, h, 10), " h"...)
 	case h == 0 && m < 10:
 		return append(b, byte('0'+m), ' ', 'm', 'i', 'n')
 	case h == 0:
@@ -1007,7 +1013,7 @@ func describe(s *siteInfo, e Event) (string, string) {
 		length := hm(e.DayLength)
 		if shown := e.DayLength.Round(time.Minute); (e.Direction == astro.Rising) != (shown >= e.Kind.DayLength) {
 			// to the minute it would read as the threshold itself ("falling
-			// below 12 h: up for 12 h 00 min"): to the second instead
+			// below 12 h: up for 12 h"): to the second instead
 			length = Length(e.DayLength, time.Second)
 		}
 		fmt.Fprintf(&b, "%s today: "+how+".", title, length, Change(e.DayChange))

@@ -14,7 +14,10 @@ var (
 	nightWord = regexp.MustCompile(`night of \d`)
 	// longDate is a date with its month in full: the table's prose writes
 	// its dates as the lamp notes do, "until 2 Jul"
-	longDate = regexp.MustCompile(`\d (January|February|March|April|June|July|August|September|October|November|December)\b`)
+	// zeroMinutes is a whole number of hours written with its zero
+	// minutes, "14 h 00 min", where a target beside it reads "14 h"
+	zeroMinutes = regexp.MustCompile(`\d h 00 min`)
+	longDate    = regexp.MustCompile(`\d (January|February|March|April|June|July|August|September|October|November|December)\b`)
 	// lampRow is a lamp period's title in a row: its length and target,
 	// its times in the time column
 	lampRow = regexp.MustCompile(`^Lamps on for \d+ (h|min)( \d\d min)?(, to reach 16 h|; 16 h not reached)$`)
@@ -27,7 +30,9 @@ var (
 // sky, 11 h 09 min" in the row of Saturday, not "…, night of 5–6 December
 // 2026"), while the subscribed calendar keeps its titles with the times
 // ("Lamps on 16:16–22:40 (6 h 24 min, to reach 16 h)"), which a calendar app
-// shows apart from the entry's own times. Salzburg (47.8° N) in December
+// shows apart from the entry's own times. A length of whole hours reads as
+// the target beside it, "16 h", never "16 h 00 min", in the rows and the
+// feed alike. Salzburg (47.8° N) in December
 // needs lamps every evening for a 16 h day and has dark windows; Tromsø
 // (69.65° N) in January has lamp periods across midnight around its polar
 // night, and Longyearbyen (78.2° N) in April nights without dark sky.
@@ -39,7 +44,7 @@ func TestRowsSayTimesOnce(t *testing.T) {
 		"lat=78.2&lon=15.6&tz=Arctic/Longyearbyen&start=2027-04-10",
 	}
 	const kinds = "&kinds=golden-hour,blue-hour,dark-window,sunset&lighting=16h"
-	lamps := 0
+	lamps, whole := 0, 0
 	check := func(where, when, title string) {
 		if when != "" && clockWord.MatchString(title) {
 			t.Errorf("%s: %q beside %q says a time again", where, title, when)
@@ -58,10 +63,15 @@ func TestRowsSayTimesOnce(t *testing.T) {
 		q := place + kinds
 		page := getOK(t, ts.URL+"/at?"+q+"&days=14")
 		body, _, _ := strings.Cut(page[strings.Index(page, "<tbody>"):], "</tbody>")
+		feed := getOK(t, ts.URL+"/at.ics?"+q+"&days=14")
+		for what, text := range map[string]string{"/at": page, "/at.ics": strings.ReplaceAll(feed, "\r\n ", "")} {
+			if m := zeroMinutes.FindString(text); m != "" {
+				t.Errorf("%s?%s: a length written %q: whole hours read \"14 h\", as the target does", what, q, m)
+			}
+		}
 		if m := longDate.FindString(page); m != "" {
 			t.Errorf("/at?%s: a date written %q: the page's prose writes \"2 Jul\"", q, m)
 		}
-		feed := getOK(t, ts.URL+"/at.ics?"+q+"&days=14")
 		for _, m := range tableItem.FindAllStringSubmatch(body, -1) {
 			item := html.UnescapeString(m[1])
 			when := ""
@@ -70,6 +80,9 @@ func TestRowsSayTimesOnce(t *testing.T) {
 			}
 			title := tableTime.ReplaceAllString(item, "")
 			check("/at?"+q, when, title)
+			if title == "Lamps on for 16 h, to reach 16 h" {
+				whole++
+			}
 			// the calendar's entry keeps the times in its title
 			if strings.HasPrefix(title, "Lamps on") && !strings.Contains(when, " ") &&
 				!strings.Contains(feed, "SUMMARY:Lamps on "+when+" (") {
@@ -92,5 +105,10 @@ func TestRowsSayTimesOnce(t *testing.T) {
 	}
 	if lamps == 0 {
 		t.Error("no lamp period in the rows")
+	}
+	// in Tromsø's polar night (late November to mid-January, from memory)
+	// the lamps give the whole 16 h
+	if whole == 0 {
+		t.Error(`no row "Lamps on for 16 h, to reach 16 h" in Tromsø's polar night`)
 	}
 }

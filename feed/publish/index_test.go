@@ -586,7 +586,7 @@ func TestChartSummaryFromToday(t *testing.T) {
 		days = append(days, d)
 	}
 	v := chart("ice", "Ice camp", &SiteChart{Days: days, Today: first.AddDate(0, 0, 3)})
-	if strings.Contains(v.Summary, "stays down") || !strings.Contains(v.Summary, "Daylight from 3 h 00 min (13 Jan) to 9 h 00 min (19 Jan)") {
+	if strings.Contains(v.Summary, "stays down") || !strings.Contains(v.Summary, "Daylight from 3 h (13 Jan) to 9 h (19 Jan)") {
 		t.Errorf("summary %q: want the days from 13 Jan only", v.Summary)
 	}
 	// and say so, since the strokes of a feed can start before today

@@ -237,7 +237,7 @@ func TestPreviewAllDayOrder(t *testing.T) {
 	cal := &feed.Calendar{Entries: []feed.Entry{
 		{Kind: "sunrise", Title: "Midnight sun: the Sun does not set today", Date: d, Start: d, AllDay: true},
 		{Kind: "moonrise", Title: "Moonrise", Date: d, Start: d.Add(20 * time.Hour)},
-		{Kind: "daily-summary", Title: "Daylight 24 h 00 min", Date: d, Start: d, AllDay: true},
+		{Kind: "daily-summary", Title: "Daylight 24 h", Date: d, Start: d, AllDay: true},
 		{Kind: "civil-dawn", Title: "No civil dusk or dawn tonight", Date: d, Start: d, AllDay: true},
 		{Kind: "moonset", Title: "Moonset", Date: d, Start: d.Add(21 * time.Hour)},
 	}}

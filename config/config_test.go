@@ -239,6 +239,11 @@ func TestValidationErrors(t *testing.T) {
 		// a date and time) and the list of one to write
 		{"bad-dates-one.yaml", "feeds[0].kinds[0].dates", "2027-06-12", "must be a list, not a date", `write it ["2027-06-12"]`, 0},
 		{"bad-weekdays-one.yaml", "feeds[0].kinds[0].weekdays", "fri", "must be a list, not text", `write it ["fri"]`, 0},
+		// a number there: the list of the month's name (6 is June in the
+		// Gregorian calendar's numbering, ISO 8601), as ["6"] is no month;
+		// a weekday's number has no one numbering, so the names are shown
+		{"bad-months-one.yaml", "feeds[0].kinds[0].months", "6", "must be a list, not a number", `write it ["jun"]`, 2},
+		{"bad-months-one.yaml", "feeds[0].kinds[1].weekdays", "5", "must be a list, not a number", `write a list of the days' names, e.g. ["sat", "sun"]`, 2},
 		{"bad-types.toml", "sites[0].latitude", `"95"`, "must be a number, not text", "", 2},
 		{"bad-types.json", "feeds[0].kinds[0].offset", "30", "a duration needs a unit", "", 3},
 		{"bad-types.json", "feeds[0].days_ahead", "10.5", "must be a whole number", "", 3},

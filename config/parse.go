@@ -1114,7 +1114,13 @@ func problemFor(path string, err error) []FieldError {
 	var ue *mapstructure.UnconvertibleTypeError
 	switch {
 	case errors.As(err, &ve):
-		return []FieldError{{Path: shown, Value: ve.Value, Msg: ve.Msg, Hint: ve.Hint}}
+		hint := ve.Hint
+		if strings.HasPrefix(ve.Msg, "must be a list, not a number") {
+			if h := namesListHint(fieldKey(path), ve.Value); h != "" {
+				hint = h // "write it [\"6\"]" would lead to "6: not a month"
+			}
+		}
+		return []FieldError{{Path: shown, Value: ve.Value, Msg: ve.Msg, Hint: hint}}
 	case errors.As(err, &ue):
 		if what := dateKey(path); what != "" && ue.Expected.Type().Kind() == reflect.String {
 			return []FieldError{{Path: shown, Value: quotedValue(ue.Value), Msg: "must be " + what + ", not " + describeValue(ue.Value), Hint: dateValueHint(ue.Value)}}
@@ -1441,6 +1447,25 @@ func nameHint(key string, v any) string {
 			return fmt.Sprintf(`write it "%02d:%02d"`, n/100, n%100)
 		}
 		return `write a local time "HH:MM" in quotes, e.g. "22:00"`
+	}
+	return ""
+}
+
+// namesListHint says how to write one number given where key holds a list
+// of month or weekday names (`months: 6`): the list of the month's name,
+// `write it ["jun"]`, as a list of the number is no month either; the
+// names to write for another number or for weekdays; "" for other keys.
+func namesListHint(key, value string) string {
+	n, err := strconv.Atoi(value)
+	switch {
+	case err != nil:
+		return ""
+	case key == "months" && n >= 1 && n <= 12:
+		return fmt.Sprintf("write it [%q]", monthNames[n-1])
+	case key == "months":
+		return `write a list of the months' names, e.g. ["jun", "jul"]`
+	case key == "weekdays":
+		return `write a list of the days' names, e.g. ["sat", "sun"]`
 	}
 	return ""
 }

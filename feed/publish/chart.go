@@ -163,14 +163,6 @@ var (
 	phone = geometry{W: 360, H: 370, Left: 26, Top: 14, PlotW: 328, PlotH: 336, Phone: true}
 )
 
-// The wide chart's plot, as its tests read it.
-const (
-	plotLeft   = 44
-	plotTop    = 44
-	plotW      = 700
-	plotBottom = 44 + 240
-)
-
 // bottom is the plot's lower edge.
 func (g geometry) bottom() float64 { return g.Top + g.PlotH }
 
@@ -272,10 +264,6 @@ func (g geometry) yOf(h float64) float64 { return g.Top + h*g.PlotH/24 }
 
 // dayStep is the width of one day of n.
 func (g geometry) dayStep(n int) float64 { return g.PlotW / float64(n) }
-
-// yOf and dayStep of the wide chart.
-func yOf(h float64) float64 { return desk.yOf(h) }
-func dayStep(n int) float64 { return desk.dayStep(n) }
 
 // curve is the path of a clock time through the days, broken where a day
 // has none (the polar day and night) and where the time passes midnight

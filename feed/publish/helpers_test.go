@@ -207,3 +207,20 @@ func listedIn(t testing.TB, dir, name string, fj *feedsJSON) []string {
 	}
 	return bad
 }
+
+// The wide chart's plot as its tests read it, written out rather than taken
+// from desk: a drawing that moves is then a failing test.
+const (
+	plotLeft   = 44
+	plotTop    = 44
+	plotW      = 700
+	plotH      = 240 // 10 units an hour
+	plotBottom = plotTop + plotH
+)
+
+// yOf is the height of a clock time on the wide chart, h hours after
+// local midnight.
+func yOf(h float64) float64 { return plotTop + h*plotH/24 }
+
+// dayStep is the width of one day of n on the wide chart.
+func dayStep(n int) float64 { return float64(plotW) / float64(n) }

@@ -791,3 +791,19 @@ func TestQuotesHintOnlyForQuotedNumbers(t *testing.T) {
 		}
 	}
 }
+
+// A temperature written in Fahrenheit is told its value in Celsius, to a
+// tenth of a degree: °C = (°F − 32) × 5/9, the two scales' definitions
+// (68 °F = 20 °C; they meet at −40; 31.99 °F is −0.0056 °C, which is 0.0
+// to a tenth, written "0", not "-0").
+func TestFahrenheitHint(t *testing.T) {
+	for _, tc := range []struct{ written, want string }{
+		{"68F", "write 20 for 68 °F"},
+		{"-40 °F", "write -40 for -40 °F"},
+		{"31.99F", "write 0 for 31.99 °F"},
+	} {
+		if got := numberTextHint("temperature_c", tc.written); !strings.HasSuffix(got, tc.want) {
+			t.Errorf("temperature_c %q: hint %q, want it to end %q", tc.written, got, tc.want)
+		}
+	}
+}

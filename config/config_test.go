@@ -222,6 +222,8 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-base-url-scheme.yaml", "service.base_url", "ftp://sky.example.org/calendars", "must be an absolute http or https URL", "", 0},
 		{"bad-listen.yaml", "service.listen", "8080", "must be host:port", "", 0},
 		{"bad-listen-number.yaml", "service.listen", "8080", "must be text, not a number", `write it ":8080"`, 0},
+		// TCP ports are 16 bits, 0..65535 (RFC 9293, section 3.1): "70000" in quotes is no port either
+		{"bad-listen-port-range.yaml", "service.listen", "70000", "must be text, not a number", `a port is 0..65535`, 0},
 		{"bad-max-feed-bytes.yaml", "service.max_feed_bytes", "-1", "must not be negative", "", 0},
 		{"bad-max-feed-bytes-unit.yaml", "service.max_feed_bytes", `"1MB"`, "must be a whole number, not text", "write the number of bytes: 1000000", 0},
 		{"bad-oversize.yaml", "service.oversize", "shrink", "must be warn, trim or fail", "", 0},

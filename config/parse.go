@@ -1434,6 +1434,7 @@ func nameHint(key string, v any) string {
 		if n >= 0 && n <= 65535 {
 			return fmt.Sprintf(`write it ":%d"`, n) // a port alone listens on every address
 		}
+		return `a port is 0..65535: write it in quotes after a colon, e.g. ":8080"` // not "70000" in quotes
 	case "months":
 		if n >= 1 && n <= 12 {
 			return fmt.Sprintf("write the month's name: %q", monthNames[n-1])

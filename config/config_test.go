@@ -287,6 +287,8 @@ func TestValidationErrors(t *testing.T) {
 		{"plan-end-never.yaml", "feeds[0].plans[1].end", "18:00", `is not after the start "20:00" and not before 12:00`, `one before 12:00 for an end past midnight ("01:00"), or a length: for: 2h`, 0},
 		{"plan-no-title.yaml", "feeds[0].plans[0].title", "", "is required", "", 0},
 		{"bad-plan-month.yaml", "feeds[0].plans[0].months[0]", "juli", "not a month", `did you mean "jul"?`, 0},
+		{"bad-weekday-twice.yaml", "feeds[0].kinds[0].weekdays[2]", "Saturday", "listed twice, also as feeds[0].kinds[0].weekdays[0]", "remove one", 0},
+		{"bad-plan-month-twice.yaml", "feeds[0].plans[0].months[2]", "jul", "listed twice, also as feeds[0].plans[0].months[0]", "remove one", 0},
 		{"bad-plan-alarm.yaml", "feeds[0].plans[0].alarm", "200h", "must be at most 7 days", "", 0},
 		{"bad-plan-alarm-days.yaml", "feeds[0].plans[0].alarm", "1d", "malformed duration", `the units are h, m and s: write "24h" for 1d`, 0},
 	}

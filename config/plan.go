@@ -649,8 +649,16 @@ func checkFilter(ps *problems, p string, weekdays, months, dates []string) {
 		{"months", "not a month", "jan, feb, mar, apr, may, jun, jul, aug, sep, oct, nov or dec", months, monthNames, monthFull,
 			func(s string) bool { _, ok := ParseMonth(s); return ok }},
 	} {
+		seen := make(map[string]int, len(l.values)) // the short name: its first index
 		for i, v := range l.values {
 			if l.ok(v) {
+				// "sat" and "saturday" are one day, as dates are refused twice
+				name := strings.ToLower(strings.TrimSpace(v))[:3]
+				if j, ok := seen[name]; ok {
+					ps.add(fmt.Sprintf("%s.%s[%d]", p, l.key, i), v, fmt.Sprintf("listed twice, also as %s.%s[%d]", p, l.key, j), "remove one")
+				} else {
+					seen[name] = i
+				}
 				continue
 			}
 			hint := l.all

@@ -1196,6 +1196,11 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 	}
 	if entryAllDay(spec, &e.Kind) {
 		d := z.date(en.Start)
+		if offset == 0 && e.Kind.Name == "dark-window" {
+			// the night's date, as its title and its notes have it, not
+			// the next morning's of a window that begins after midnight
+			d = e.Date
+		}
 		en.AllDay, en.Start, en.End, en.Date = true, d, d.AddDate(0, 0, 1), d
 	}
 	sp := textSpan{entry: len(w.out) - 1, from: from, to: len(w.text), uid: len(w.text)}

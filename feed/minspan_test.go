@@ -197,3 +197,26 @@ func TestFiltersInCalendarDescription(t *testing.T) {
 		t.Errorf("a kind without filters is said to be filtered:\n%s", cal.Description)
 	}
 }
+
+// A dark window shown all day is on the date of its night, as its title
+// and the notes of nights without one are, also when it begins after
+// midnight. At 50° N, 10° E (sea level, Europe/Berlin) the window of the
+// night of 11–12 May 2027 begins at moonset, 2027-05-12 00:14:13 UTC
+// (02:14 CEST on 12 May), and ends at astronomical dawn, 01:03:05 UTC
+// (PyEphem 4.1, as in TestSpansUnderMinimumNoted).
+func TestDarkWindowAllDayDate(t *testing.T) {
+	s := site(t, "mid-50", 50, 10, "Europe/Berlin")
+	sk := sky(t, "2027-05-11", "2027-05-11")
+	spec := config.KindSpec{Kind: mustKinds(t, "dark-window")[0], AllDay: true}
+	es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date("2027-05-11"), date("2027-05-11"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(es) != 1 {
+		t.Fatalf("%d entries, want the window of the night of 11–12 May: %+v", len(es), es)
+	}
+	e := es[0]
+	if !e.AllDay || !e.Date.Equal(date("2027-05-11")) || !e.Start.Equal(date("2027-05-11")) || !strings.Contains(e.Title, "night of 11–12 May 2027") {
+		t.Errorf("all-day dark window: %q on %s (start %s), want it on 2027-05-11, the date of its night", e.Title, e.Date.Format(time.DateOnly), e.Start)
+	}
+}

@@ -35,7 +35,9 @@ end) on some dates, and so does not limit them there, gets a warning too, as doe
 date a kinds entry lists or a plan is on before the feed's window, or that the entry's own
 months or weekdays leave out: it is never published. One after the window gets a note: it
 is published once the window reaches it. A photoperiod threshold no date of the window
-crosses gets a warning whatever the dates its kinds entry keeps.
+crosses gets a warning whatever the dates its kinds entry keeps, as do a plan on 29 February
+(every 02-29) whose window holds none, an alarm on all-day entries (calendars set no reminder
+before them) and all_day: true on a kind whose entries are all-day already.
 
 --format json prints one JSON document on standard output for scripts: the sites and feeds
 of a valid configuration, or {"valid": false, "problems": [...]} with one object per
@@ -215,7 +217,8 @@ func zoneNote(s *config.Site, when time.Time, flag string) string {
 // feeds, the warnings (a feed over max_feed_bytes under warn, a photoperiod
 // kind that gives only a note, whatever its filters, lighting limits that
 // do not limit, dates before a feed's window or left out by their entry's
-// months or weekdays), the notes (dates after a feed's window, a feed
+// months or weekdays, a plan on 29 February whose window holds none,
+// options all-day entries make do nothing), the notes (dates after a feed's window, a feed
 // shortened under trim) and the feeds refused under fail; it returns apart
 // the lines that note which sites take their zone from their coordinates.
 func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now time.Time) (*checkReport, []string, error) {
@@ -268,6 +271,8 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		r.Warnings = append(r.Warnings, warnings...)
 		r.Warnings = append(r.Warnings, datesFilteredOut(&f, shown, listed)...)
 		r.Warnings = append(r.Warnings, planDatesFilteredOut(&f)...)
+		r.Warnings = append(r.Warnings, leapDayWarnings(&f, cal)...)
+		r.Warnings = append(r.Warnings, allDayWarnings(&f, shown)...)
 		r.Notes = append(r.Notes, later...)
 		// encoded as publish and serve encode it, under service.oversize:
 		// as it is, shortened, or refused

@@ -1,0 +1,77 @@
+package main
+
+import (
+	"fmt"
+	"time"
+
+	"heliocal/config"
+	"heliocal/feed"
+)
+
+// allDayWarnings words the options of feed f that an all-day entry makes
+// do nothing, and that the configuration may still hold: an alarm on a
+// kinds entry whose entries are all-day (daily-summary, photoperiod, or
+// all_day: true) or on a plan without a start, all-day too, for a calendar
+// sets no reminder before an all-day entry (see ical's entryAlarm); and
+// all_day: true on a kind whose entries are all-day already. shown are the
+// kinds entries as check's table writes them.
+func allDayWarnings(f *config.Feed, shown []string) []string {
+	var out []string
+	for i, k := range f.Kinds {
+		if !k.AllDay && !k.Kind.IsAllDay() {
+			continue
+		}
+		if k.Alarm != nil && k.Alarm.D() > 0 {
+			why := "its entries are all-day"
+			if k.AllDay && !k.Kind.IsAllDay() {
+				why = "all_day: true makes its entries all-day"
+			}
+			out = append(out, fmt.Sprintf("feed %q: %s: alarm %s gives no reminder: %s, and reminders are set before timed entries only",
+				f.ID, shown[i], k.Alarm, why))
+		}
+		if k.AllDay && k.Kind.IsAllDay() {
+			out = append(out, fmt.Sprintf("feed %q: %s: all_day: true changes nothing: its entries are all-day already", f.ID, shown[i]))
+		}
+	}
+	for _, p := range f.Plans {
+		if p.Start == "" && p.Alarm != nil && p.Alarm.D() > 0 {
+			out = append(out, fmt.Sprintf("feed %q: plan %q: alarm %s gives no reminder: a plan without start is all-day, and reminders are set before timed entries only",
+				f.ID, p.Title, p.Alarm))
+		}
+	}
+	return out
+}
+
+// leapDayWarnings words the plans of feed f on 29 February ("every
+// 02-29") whose window, as cal was built for it, holds no 29 February: the
+// feed shows nothing for them until the window, which rolls with each day,
+// reaches the next one, days_ahead days before it. A plan whose months
+// leave February out is planDatesFilteredOut's.
+func leapDayWarnings(f *config.Feed, cal *feed.Calendar) []string {
+	first, last := cal.FirstDate(), cal.LastDate
+	var out []string
+	for _, p := range f.Plans {
+		r, err := config.ParseDateRule(p.Date)
+		if err != nil || r.Type != config.RuleYearly || r.Month != time.February || r.Day != 29 ||
+			!config.NewDateFilter(nil, p.Months, nil).Allows(time.Date(2000, time.February, 1, 0, 0, 0, 0, time.UTC)) {
+			continue
+		}
+		next := nextLeapDay(first)
+		if !next.After(last) {
+			continue
+		}
+		out = append(out, fmt.Sprintf("feed %q: plan %q: its dates (%s) are in leap years only, and the window %s..%s holds no 29 February: no entry falls in it; the next, %s, is published from %s, when the window reaches it",
+			f.ID, p.Title, p.Date, first.Format(time.DateOnly), last.Format(time.DateOnly), next.Format(time.DateOnly),
+			next.AddDate(0, 0, -f.DaysAhead).Format(time.DateOnly)))
+	}
+	return out
+}
+
+// nextLeapDay is the first 29 February on or after the date d.
+func nextLeapDay(d time.Time) time.Time {
+	for y := d.Year(); ; y++ {
+		if l := time.Date(y, time.February, 29, 0, 0, 0, 0, time.UTC); l.Day() == 29 && !l.Before(d) {
+			return l
+		}
+	}
+}

@@ -1,0 +1,57 @@
+package main
+
+import (
+	"slices"
+	"strings"
+	"testing"
+	"time"
+)
+
+// allDayFeed is a feed whose options all-day entries make do nothing: an
+// alarm on daily-summary, on seasons shown all day and on a plan without
+// start, and all_day on photoperiod; and a plan on 29 February whose
+// window, checked on 5 December 2026, runs 2026-12-05..2027-10-01 (300
+// days ahead), with no 29 February in it: 2027 is no leap year, 2028 is
+// (Gregorian calendar: a year divisible by 4, not by 100 unless by 400).
+const allDayFeed = `sites:
+  - {id: farm, latitude: 47.07, longitude: 8.3, timezone: Europe/Zurich}
+feeds:
+  - id: farm-year
+    site: farm
+    days_back: 0
+    days_ahead: 300
+    kinds:
+      - {kind: daily-summary, alarm: 15m}
+      - {kind: seasons, all_day: true, alarm: 1h}
+      - {kind: "photoperiod:12h", all_day: true}
+      - {kind: sunset, alarm: 10m}
+      - {kind: sunrise, all_day: true, alarm: 0s}
+    plans:
+      - {title: Leap-day walk, date: every 02-29, start: "10:00"}
+      - {title: Last frost, date: every 04-25, alarm: 1h}
+      - {title: Vents, date: every day, start: sunrise, alarm: 5m}
+`
+
+var allDayNow = time.Date(2026, 12, 5, 12, 0, 0, 0, time.UTC)
+
+// check warns of each, and of nothing else: an alarm on timed entries,
+// "0s" on all-day ones and a yearly plan in the window are fine.
+func TestAllDayWarnings(t *testing.T) {
+	r := checkReportOf(t, allDayFeed, allDayNow)
+	want := []string{
+		`feed "farm-year": plan "Leap-day walk": its dates (every 02-29) are in leap years only, and the window 2026-12-05..2027-10-01 holds no 29 February: no entry falls in it; the next, 2028-02-29, is published from 2027-05-05, when the window reaches it`,
+		`feed "farm-year": daily-summary: alarm 15m gives no reminder: its entries are all-day, and reminders are set before timed entries only`,
+		`feed "farm-year": seasons: alarm 1h gives no reminder: all_day: true makes its entries all-day, and reminders are set before timed entries only`,
+		`feed "farm-year": photoperiod:12h: all_day: true changes nothing: its entries are all-day already`,
+		`feed "farm-year": plan "Last frost": alarm 1h gives no reminder: a plan without start is all-day, and reminders are set before timed entries only`,
+	}
+	if !slices.Equal(r.Warnings, want) {
+		t.Errorf("warnings:\n%s\nwant:\n%s", strings.Join(r.Warnings, "\n"), strings.Join(want, "\n"))
+	}
+	// a window that holds 2028-02-29 (from 2027-05-05 on) has the plan's
+	// entry: no warning of it
+	r = checkReportOf(t, allDayFeed, time.Date(2027, 5, 5, 12, 0, 0, 0, time.UTC))
+	if slices.ContainsFunc(r.Warnings, func(w string) bool { return strings.Contains(w, "Leap-day walk") }) {
+		t.Errorf("window 2027-05-05..2028-02-29:\n%s", strings.Join(r.Warnings, "\n"))
+	}
+}

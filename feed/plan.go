@@ -919,6 +919,15 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 	}
 	b = append(z.appendClock(append(b, "From "...), start), pt.startWords...)
 	b = appendMoved(b, sm, sMoved && !both, next, true)
+	// the clocks going back, said once: after the end the plan lasts
+	// across the change to, else after a start the clocks show twice
+	back, across := "", false
+	if pl.start.IsClock || pl.end != nil && pl.end.IsClock {
+		back, across = goBack(start, en.End, z.loc)
+	}
+	if back != "" && !across {
+		b = append(b, back...)
+	}
 	if noEnd {
 		b = append(append(append(b, "; no "...), pt.endName...), " that day or the next to end it"...)
 	}
@@ -936,6 +945,9 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 			b = appendMoved(b, em, eMoved, ed, false)
 		default: // the date of a move is not said twice either
 			b = appendMoved(b, em, eMoved, time.Time{}, next.IsZero() || !ed.Equal(next))
+		}
+		if across {
+			b = append(b, back...)
 		}
 	}
 	b = append(b, '.')
@@ -1106,6 +1118,34 @@ func bothMovedWords(start, end clockMove) string {
 		b += " for summer time"
 	}
 	return b
+}
+
+// goBack says that the clocks go back at start or between start and end
+// (zero: none), " (on Sun 7 Nov 2027 at 01:00 CDT the clocks go back from
+// summer time by 1 h)", as movedClock's words say they go forward; across
+// when the change comes after start, not after end, and "" when there is
+// none: the clocks show start's reading again after the change (a start
+// in the repeated hour, the first of the two: see clockOn), or end is at
+// or after it.
+func goBack(start, end time.Time, loc *time.Location) (words string, across bool) {
+	s := start.In(loc)
+	abbr, off := s.Zone()
+	_, change := s.ZoneBounds()
+	if change.IsZero() {
+		return "", false
+	}
+	_, after := change.In(loc).Zone()
+	by := time.Duration(off-after) * time.Second
+	across = !end.IsZero() && !change.After(end)
+	if by <= 0 || !across && change.Sub(start) >= by {
+		return "", false
+	}
+	how := "back"
+	if s.IsDST() && !change.In(loc).IsDST() {
+		how = "back from summer time"
+	}
+	at := change.In(time.FixedZone(abbr, off)) // the clock before the change
+	return fmt.Sprintf(" (on %s at %s the clocks go %s by %s)", at.Format("Mon 2 Jan 2006"), at.Format("15:04 MST"), how, amount(by)), across
 }
 
 // appendMoved appends what follows a plan's time shown: " the next day (Sun

@@ -935,3 +935,40 @@ func TestPlanClockRepeatedTakesTheFirst(t *testing.T) {
 		})
 	}
 }
+
+// A plan in the hour the clocks show twice says they go back, as one in
+// the hour they skip says they go forward (TestPlanClockSkipped). In
+// America/Havana the clocks go back from 01:00 CDT (UT − 4 h) to 00:00 CST
+// (UT − 5 h) at 05:00 UT on Sunday 7 November 2027 (tz database: Rule Cuba
+// 2012 max - Nov Sun>=1 0:00s 0 S), so a plan from "00:30" for 30 min that
+// night runs from 00:30 CDT (04:30 UT) to 00:00 CST; in America/New_York
+// they go back from 02:00 EDT to 01:00 EST on the same date (Rule US 2007
+// max - Nov Sun>=1 2:00 0 S), so a plan at "01:30", without end, is at the
+// first 01:30 (05:30 UT), before the change. The nights before have no
+// such note.
+func TestPlanClockRepeatedSaysSo(t *testing.T) {
+	const havana = " (on Sun 7 Nov 2027 at 01:00 CDT the clocks go back from summer time by 1 h)"
+	hav := site(t, "hav", 23.13, -82.38, "America/Havana")
+	es := planEntries(t, hav, "2027-11-06", "2027-11-07", config.Plan{Title: "Night check", Date: "every day", Start: "00:30", For: config.Duration(30 * time.Minute)})
+	if len(es) != 2 {
+		t.Fatalf("%d entries", len(es))
+	}
+	if want := "From 00:30:00 CDT to 01:00:00 CDT."; !strings.HasPrefix(es[0].Description, want) {
+		t.Errorf("6 November: %q, want %q", es[0].Description, want)
+	}
+	if want := "From 00:30:00 CDT to 00:00:00 CST" + havana + "."; !strings.HasPrefix(es[1].Description, want) ||
+		!es[1].Start.Equal(time.Date(2027, 11, 7, 4, 30, 0, 0, time.UTC)) {
+		t.Errorf("7 November: %q from %s, want %q from 04:30 UT", es[1].Description, es[1].Start.UTC(), want)
+	}
+	ny := site(t, "ny", 40.71, -74.01, "America/New_York")
+	es = planEntries(t, ny, "2027-11-06", "2027-11-07", config.Plan{Title: "Check", Date: "every day", Start: "01:30"})
+	if len(es) != 2 {
+		t.Fatalf("%d entries", len(es))
+	}
+	if strings.Contains(es[0].Description, "clocks") {
+		t.Errorf("6 November: %q", es[0].Description)
+	}
+	if want := "From 01:30:00 EDT (on Sun 7 Nov 2027 at 02:00 EDT the clocks go back from summer time by 1 h)."; !strings.HasPrefix(es[1].Description, want) {
+		t.Errorf("7 November: %q, want %q", es[1].Description, want)
+	}
+}

@@ -1046,7 +1046,7 @@ func TestSkylineNoteTexts(t *testing.T) {
 		t.Errorf("photoperiod over the skyline:\n%s", mar)
 	}
 	one := titles(entries("2027-02-20", "2027-02-20", "photoperiod:12h"))
-	if !strings.HasPrefix(one, "Direct Sun stays below 12 h on 20 February 2027 (longest 0 min, 20 February)") {
+	if !strings.HasPrefix(one, "Direct Sun stays below 12 h on 20 February 2027 (the Sun stays behind the skyline on this date)") {
 		t.Errorf("one date's photoperiod note: %s", one)
 	}
 }
@@ -1166,6 +1166,31 @@ func TestSummaryTitlePolarNight(t *testing.T) {
 		}
 		if len(es) != 1 || es[0].Title != tc.title {
 			t.Errorf("%s: %+v, want the title %q", tc.date, es, tc.title)
+		}
+	}
+}
+
+// A photoperiod threshold over a window all in polar night or all under
+// the midnight Sun says what the grower sees there, not "longest 0 min" or
+// "shortest 24 h": polar night is a date on which the Sun does not rise,
+// midnight Sun one on which it does not set (their definitions). At 80° N,
+// 0° the Sun is continuously below the horizon on 21 December 2015 and
+// continuously above it on 14 April 2015 (USNO, 'Rise and Set for the Sun',
+// N80 00, 2015: rows sun-0182 and sun-0169 of
+// testdata/reference/sun-times.csv).
+func TestPhotoperiodPolarNoteTexts(t *testing.T) {
+	s := site(t, "arctic", 80, 0, "UTC")
+	for _, c := range []struct{ date, want string }{
+		{"2015-12-21", "Day length stays below 12 h on 21 December 2015 (the Sun does not rise on this date)"},
+		{"2015-04-14", "Day length stays at or above 12 h on 14 April 2015 (the Sun does not set on this date)"},
+	} {
+		sk := sky(t, c.date, c.date)
+		es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{{Kind: mustKinds(t, "photoperiod:12h")[0]}}, date(c.date), date(c.date))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(es) != 1 || es[0].Title != c.want {
+			t.Errorf("%s: %+v, want one note %q", c.date, es, c.want)
 		}
 	}
 }

@@ -1470,7 +1470,9 @@ func describeNote(s *siteInfo, n Note) (string, string) {
 // window (a note from the photoperiod kind with DayLength and ExtremeDate
 // set): "Day length never reaches 14 h here (longest 12 h 42 min, 21 June)"
 // over a year or more, "Day length stays below 14 h from 1 January to 31
-// March 2027 (longest …)" over a shorter window.
+// March 2027 (longest …)" over a shorter window; over a window all in polar
+// night or midnight Sun, "(the Sun does not rise on these dates)", "(the
+// Sun does not set on these dates)".
 func NotReachedText(n Note) string {
 	target := Amount(n.Kind.DayLength)
 	from := n.start() // the window's first date, where a filter moved the note from
@@ -1497,6 +1499,22 @@ func NotReachedText(n Note) string {
 	length := hm(n.DayLength)
 	if length == hm(n.Kind.DayLength) {
 		length = Length(n.DayLength, time.Second)
+	}
+	// a window all in polar night or midnight Sun: what the grower sees,
+	// not "longest 0 min" or "shortest 24 h" on a date among equals
+	dates := "on these dates"
+	if n.Last.Equal(from) {
+		dates = "on this date"
+	}
+	switch {
+	case n.State != astro.AlwaysAbove && n.DayLength <= 0 && n.DirectSun:
+		return fmt.Sprintf("%s %s (the Sun stays behind the skyline %s)", what, when, dates)
+	case n.State != astro.AlwaysAbove && n.DayLength <= 0:
+		return fmt.Sprintf("%s %s (the Sun does not rise %s)", what, when, dates)
+	case n.State == astro.AlwaysAbove && n.DayLength >= 24*time.Hour && n.DirectSun:
+		return fmt.Sprintf("%s %s (the Sun stays over the skyline all day %s)", what, when, dates)
+	case n.State == astro.AlwaysAbove && n.DayLength >= 24*time.Hour:
+		return fmt.Sprintf("%s %s (the Sun does not set %s)", what, when, dates)
 	}
 	out := ""
 	switch n.ExtremeLeftOut {

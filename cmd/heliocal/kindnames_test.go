@@ -85,7 +85,7 @@ func TestFormNamesKindsAsFeed(t *testing.T) {
 	if err := json.Unmarshal([]byte(getOK(t, ts.URL+"/at.json?"+q)), &res); err != nil {
 		t.Fatal(err)
 	}
-	table := getOK(t, ts.URL+"/at?"+q)
+	table := pageWords(getOK(t, ts.URL+"/at?"+q))
 	n := 0
 	for _, d := range res.Days {
 		for _, e := range d.Entries {

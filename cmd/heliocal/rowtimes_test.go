@@ -61,7 +61,7 @@ func TestRowsSayTimesOnce(t *testing.T) {
 	}
 	for _, place := range places {
 		q := place + kinds
-		page := getOK(t, ts.URL+"/at?"+q+"&days=14")
+		page := pageWords(getOK(t, ts.URL+"/at?"+q+"&days=14"))
 		body, _, _ := strings.Cut(page[strings.Index(page, "<tbody>"):], "</tbody>")
 		feed := getOK(t, ts.URL+"/at.ics?"+q+"&days=14")
 		for what, text := range map[string]string{"/at": page, "/at.ics": strings.ReplaceAll(feed, "\r\n ", "")} {

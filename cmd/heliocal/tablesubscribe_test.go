@@ -32,7 +32,7 @@ func TestTableSubscribesAsPreview(t *testing.T) {
 	if res.SubscribeDays < 150 || res.SubscribeDays >= 365 {
 		t.Fatalf("the preview subscribes to %d days; want fewer than a year, the days that fit", res.SubscribeDays)
 	}
-	page := getOK(t, ts.URL+"/at?"+q)
+	page := pageWords(getOK(t, ts.URL+"/at?"+q))
 	m := tableAddress.FindStringSubmatch(page)
 	if m == nil {
 		t.Fatalf("the table page has no calendar address:\n%s", page)
@@ -80,7 +80,7 @@ func TestTableLampNoteAsFed(t *testing.T) {
 	if !strings.HasPrefix(note, "No lamps needed until ") {
 		t.Fatalf("the preview's note on %s is %q, want one that says until when", res.Days[0].Date, note)
 	}
-	page := getOK(t, ts.URL+"/at?"+q+"&days=10")
+	page := pageWords(getOK(t, ts.URL+"/at?"+q+"&days=10"))
 	if !strings.Contains(page, "<li>"+html.EscapeString(note)+"</li>") || strings.Contains(page, "No lamps needed through") {
 		t.Errorf("the table's note is not the preview's %q:\n%s", note, page)
 	}

@@ -100,7 +100,7 @@ function render(res) {
   // the days are those from the date chosen ("Preview from"), the next
   // ones or not
   if (res.days.length) $("days-h").textContent = "Seven days from " + res.days[0].weekday + " " + res.days[0].date;
-  $("span-note").textContent = res.subscribe_note;
+  $("span-note").textContent = keepUnits(res.subscribe_note);
   const box = $("preview");
   box.textContent = "";
   const table = document.createElement("table");
@@ -128,12 +128,20 @@ function render(res) {
         li.appendChild(t);
         li.appendChild(document.createTextNode(" "));
       }
-      li.appendChild(document.createTextNode(e.title));
+      li.appendChild(document.createTextNode(keepUnits(e.title)));
       ul.appendChild(li);
     }
     if (day.entries.length) td.appendChild(ul);
   }
   box.appendChild(table);
+}
+
+// keepUnits joins a number and its unit ("16 h", "45 min", "+1 day") and
+// the hours and minutes of one length ("9 h 05 min") with no-break spaces,
+// as the server's keepUnits does for the page /at: a narrow screen breaks
+// a line elsewhere. The JSON keeps its plain spaces.
+function keepUnits(s) {
+  return s.replace(/(\d) (h|min|s|days?|k?m)\b/g, "$1\u00a0$2").replace(/(\d\u00a0h) (\d+\u00a0min)/g, "$1\u00a0$2");
 }
 
 let timer = 0;

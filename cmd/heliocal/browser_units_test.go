@@ -1,0 +1,124 @@
+package main
+
+import (
+	"io"
+	"net/http"
+	"strings"
+	"testing"
+
+	"github.com/chromedp/chromedp"
+)
+
+// unitBreaks lists the amounts in the entries of the day-by-day tables
+// (the page /at and the builder's preview) that a line break splits: a
+// number and its unit ("to reach 16" over "h"), or the hours and minutes
+// of one length ("Daylight 9 h" over "05 min").
+const unitBreaks = `[...document.querySelectorAll("table.days li")].flatMap(li => {
+  const r = document.createRange(), chars = [];
+  const walk = document.createTreeWalker(li, NodeFilter.SHOW_TEXT);
+  for (let node = walk.nextNode(); node; node = walk.nextNode()) {
+    for (let i = 0; i < node.length; i++) {
+      r.setStart(node, i); r.setEnd(node, i + 1);
+      chars.push([node.data[i], r.getBoundingClientRect().top]);
+    }
+  }
+  const text = chars.map(c => c[0]).join("");
+  const out = [];
+  for (const m of text.matchAll(/\d+[ \u00a0](?:h|min|s|days?)(?:[ \u00a0]\d+[ \u00a0]min)?(?![A-Za-z])/g)) {
+    for (let i = m.index + 1; i < m.index + m[0].length; i++) {
+      if (chars[i][1] > chars[i - 1][1] + 2) {
+        out.push(JSON.stringify(m[0].slice(0, i - m.index)) + " over " + JSON.stringify(m[0].slice(i - m.index)) + " in " + JSON.stringify(text));
+        break;
+      }
+    }
+  }
+  return out;
+})`
+
+// On a phone the day-by-day table (/at) and the builder's preview keep a
+// number and its unit on one line, and the hours and minutes of a length:
+// the page joins them with a no-break space (U+00A0); the feeds and the
+// JSON keep their plain spaces (TestTableUnitsNoBreak).
+func TestBrowserUnitsWhole(t *testing.T) {
+	ts := builderServer(t)
+	ctx := browser(t)
+	const kinds = "&kinds=sunrise,sunset,daily-summary,dark-window,lighting:16h,golden-hour,photoperiod:12h"
+	table := ts.URL + "/at?lat=59.91&lon=10.75&tz=Europe/Oslo&start=2026-12-05&days=30&name=Bygd%C3%B8y%20allotments" + kinds
+	for _, w := range []int64{390, 320} {
+		if err := chromedp.Do(ctx, chromedp.EmulateViewport(w, 800), chromedp.Navigate(table), chromedp.WaitVisible(chromedp.CSS("table.days"))); err != nil {
+			t.Fatal(err)
+		}
+		split, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](unitBreaks))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(split) > 0 {
+			t.Errorf("the table page at %d px splits %d amounts: %s", w, len(split), strings.Join(split, "; "))
+		}
+	}
+	if err := chromedp.Do(ctx,
+		chromedp.EmulateViewport(320, 800),
+		chromedp.Navigate(ts.URL+"/"),
+		chromedp.WaitVisible(chromedp.ID("lat")),
+		chromedp.SendKeys(chromedp.ID("lat"), "59.91"),
+		chromedp.SendKeys(chromedp.ID("lon"), "10.75"),
+		chromedp.Poll[chromedp.Void](`document.querySelector("#preview th") !== null`),
+	); err != nil {
+		t.Fatal(err)
+	}
+	// every kind the builder offers, lighting and daily-summary among them
+	if err := chromedp.Do(ctx,
+		chromedp.Evaluate[chromedp.Void](`document.querySelectorAll("input[name=kinds]").forEach(c => { if (!c.checked) c.click(); })`),
+		chromedp.Poll[chromedp.Void](`[...document.querySelectorAll("#preview li")].some(li => /Daylight/.test(li.textContent))`),
+	); err != nil {
+		t.Fatal(err)
+	}
+	split, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](unitBreaks))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(split) > 0 {
+		t.Errorf("the builder's preview at 320 px splits %d amounts: %s", len(split), strings.Join(split, "; "))
+	}
+}
+
+// The page /at joins each amount with no-break spaces (U+00A0), and only
+// the page: the preview's JSON and the feed keep the plain spaces of their
+// bytes. At 59.91° N the lamps of a 16 h program run for hours in December
+// and the day is under 12 h (the texts, not the values, are under test).
+func TestTableUnitsNoBreak(t *testing.T) {
+	ts := builderServer(t)
+	q := "?lat=59.91&lon=10.75&tz=Europe/Oslo&start=2026-12-05&days=3&name=Bygd%C3%B8y&kinds=daily-summary,lighting:16h"
+	get := func(path string) string {
+		t.Helper()
+		res, err := http.Get(ts.URL + path + q)
+		if err != nil {
+			t.Fatal(err)
+		}
+		defer res.Body.Close()
+		b, err := io.ReadAll(res.Body)
+		if err != nil || res.StatusCode != http.StatusOK {
+			t.Fatalf("%s: %d %v", path, res.StatusCode, err)
+		}
+		return string(b)
+	}
+	page := get("/at")
+	for _, want := range []string{"to reach 16\u00a0h", "Daylight 6\u00a0h\u00a017\u00a0min", "the next 365\u00a0days"} {
+		if !strings.Contains(page, want) {
+			t.Errorf("the page /at lacks %q", want)
+		}
+	}
+	if strings.Contains(page, "16 h") || strings.Contains(page, "17 min") {
+		t.Errorf("the page /at keeps a plain space in an amount")
+	}
+	for _, path := range []string{"/at.json", "/at.ics"} {
+		if body := get(path); strings.Contains(body, "\u00a0") || !strings.Contains(body, "to reach 16 h") {
+			t.Errorf("%s: a no-break space, or no \"to reach 16 h\"", path)
+		}
+	}
+}
+
+// pageWords is an HTML page's text with its no-break spaces (keepUnits)
+// read as spaces, for the tests that compare its words with the preview's
+// JSON or the feed.
+func pageWords(page string) string { return strings.ReplaceAll(page, "\u00a0", " ") }

@@ -46,8 +46,9 @@ func (f stallingFile) Write(p []byte) (int, error) {
 }
 
 // stoppingWriter counts the points of a publish at which a kill can land
-// (every temporary file being written, every rename and removal of the
-// commit) and, at point at, reports it on stdout and hangs.
+// (every temporary file being written; every rename and removal of the
+// commit, and the keeping of each file it replaces or removes) and, at
+// point at, reports it on stdout and hangs.
 func stoppingWriter(dir string, at int) (*Writer, *int) {
 	point := 0
 	var mu sync.Mutex // the workers create their temporary files concurrently
@@ -198,6 +199,8 @@ func TestKilledPublishKeepsListingTrue(t *testing.T) {
 				stopped["before a rename"]++
 			case strings.Contains(what, "before remove"):
 				stopped["before a removal"]++
+			case strings.Contains(what, "before keep"):
+				stopped["before keeping a replaced file"]++
 			default:
 				stopped["after the end"]++
 			}

@@ -12,12 +12,12 @@ import (
 var (
 	clockWord = regexp.MustCompile(`\b\d\d:\d\d\b`)
 	nightWord = regexp.MustCompile(`night of \d`)
-	// longDate is a date with its month in full: the table's prose writes
-	// its dates as the lamp notes do, "until 2 Jul"
 	// zeroMinutes is a whole number of hours written with its zero
 	// minutes, "14 h 00 min", where a target beside it reads "14 h"
 	zeroMinutes = regexp.MustCompile(`\d h 00 min`)
-	longDate    = regexp.MustCompile(`\d (January|February|March|April|June|July|August|September|October|November|December)\b`)
+	// longDate is a date with its month in full: the table's prose writes
+	// its dates as the lamp notes do, "until 2 Jul" ("May" is both forms)
+	longDate = regexp.MustCompile(`\d (January|February|March|April|June|July|August|September|October|November|December)\b`)
 	// lampRow is a lamp period's title in a row: its length and target,
 	// its times in the time column
 	lampRow = regexp.MustCompile(`^Lamps on for \d+ (h|min)( \d\d min)?(, to reach 16 h|; 16 h not reached)$`)

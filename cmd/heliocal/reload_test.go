@@ -8,7 +8,6 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
-	"syscall"
 	"testing"
 	"time"
 )
@@ -64,9 +63,7 @@ func TestServeReloadAppliesBaseURLAndSchedule(t *testing.T) {
 	// service.listen changes too, but --listen is given: a restart would
 	// listen where serve does now, so the log must not ask for one.
 	write("  base_url: https://b.example.org/\n  refresh: \"@every 2h\"\n  refresh_zone: UTC\n  listen: \"127.0.0.1:1\"\n")
-	if err := syscall.Kill(os.Getpid(), syscall.SIGHUP); err != nil {
-		t.Fatal(err)
-	}
+	sendSIGHUP(t)
 	waitFor(t, logs, "the reload", func() bool { return strings.Contains(logs.String(), "configuration reloaded") })
 	if l := logs.String(); strings.Contains(l, "restart heliocal") || !strings.Contains(l, "--listen is given and stays in force") {
 		t.Errorf("a changed service.listen under --listen: the log asks for a restart or does not say --listen stays:\n%s", grepLines(l, "listen"))
@@ -122,9 +119,7 @@ func TestServeReloadFromStdinRefused(t *testing.T) {
 			t.Fatalf("timed out waiting for the first build\n%s", logs.String())
 		}
 	}
-	if err := syscall.Kill(os.Getpid(), syscall.SIGHUP); err != nil {
-		t.Fatal(err)
-	}
+	sendSIGHUP(t)
 	for deadline := time.Now().Add(30 * time.Second); !strings.Contains(logs.String(), "reload refused: the configuration was read from standard input"); time.Sleep(50 * time.Millisecond) {
 		if time.Now().After(deadline) {
 			t.Fatalf("no refusal logged\n%s", logs.String())
@@ -204,9 +199,7 @@ func TestServeRefusesOversizeFeed(t *testing.T) {
 	if err := os.WriteFile(path, []byte(refusing+reloadSite), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	if err := syscall.Kill(os.Getpid(), syscall.SIGHUP); err != nil {
-		t.Fatal(err)
-	}
+	sendSIGHUP(t)
 	waitFor(t, logs, "the refused reload", func() bool { _, b := health(); return strings.Contains(b, "failed to build") })
 	code, body := health()
 	if code != http.StatusOK || !strings.Contains(body, refused) || !strings.Contains(body, over) || strings.Count(body, "failed to build") != 1 {

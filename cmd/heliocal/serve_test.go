@@ -12,7 +12,6 @@ import (
 	"regexp"
 	"strings"
 	"sync"
-	"syscall"
 	"testing"
 	"time"
 
@@ -217,9 +216,7 @@ func TestServeReloadRefusesInvalidConfig(t *testing.T) {
 	if err := os.WriteFile(path, []byte("sites:\n  - id: x\n    latitude: 95\n"), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	if err := syscall.Kill(os.Getpid(), syscall.SIGHUP); err != nil {
-		t.Fatal(err)
-	}
+	sendSIGHUP(t)
 	waitFor(t, logs, "the refused reload", func() bool { return strings.Contains(logs.String(), "reload refused") })
 	if !strings.Contains(logs.String(), "latitude") {
 		t.Errorf("the log does not name the bad field:\n%s", logs.String())

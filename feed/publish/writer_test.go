@@ -43,11 +43,7 @@ func fileIDs(t *testing.T, dir string) map[string]fileID {
 		if err != nil {
 			t.Fatal(err)
 		}
-		id := fileID{mtime: fi.ModTime()}
-		if st, ok := fi.Sys().(*syscall.Stat_t); ok {
-			id.ino = st.Ino
-		}
-		m[name] = id
+		m[name] = fileID{mtime: fi.ModTime(), ino: inode(fi)}
 	}
 	return m
 }
@@ -126,8 +122,7 @@ func keys(m map[string][]byte) []string {
 func TestPublishedFilesAreWorldReadable(t *testing.T) {
 	for _, umask := range []int{0o022, 0o077, 0o000} {
 		t.Run(fmt.Sprintf("umask %03o", umask), func(t *testing.T) {
-			old := syscall.Umask(umask)
-			defer syscall.Umask(old)
+			setUmask(t, umask)
 			root := t.TempDir()
 			dir := filepath.Join(root, "www", "sky", "public")
 			checkModes := func(when string) {

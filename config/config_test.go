@@ -710,6 +710,8 @@ func TestLoadErrors(t *testing.T) {
 		"{\"sites\":[] // the places\n}":       "(JSON has no comments)",
 		`{sites:[]}`:                           `(JSON writes keys in double quotes: "sites")`,
 		`{"sites":[{"id":"a" "latitude":1}]}`:  "(a comma is missing before it)",
+		`{"sites":[{"id" "a"}]}`:               `after object key (a colon is missing between the key and its value, as in "id": "a")`,
+		`{"sites" []}`:                         `after object key (a colon is missing between the key and its value, as in "id": "a")`,
 	} {
 		_, err = Parse(strings.NewReader(in), "json")
 		if !errors.Is(err, ErrUnreadable) || !strings.HasSuffix(err.Error(), want) {

@@ -378,7 +378,7 @@ func tomlValueAt(data []byte, row, col int) string {
 // jsonHint says what the usual slips that give the JSON decoder's syntax
 // error msg are, read before holds the document up to the error: a comma
 // before a closing bracket, text in single quotes, a comment, a key
-// without quotes, a missing comma; "" for other errors.
+// without quotes, a missing colon or comma; "" for other errors.
 func jsonHint(msg string, before []byte) string {
 	prev := bytes.TrimRight(before, " \t\r\n")
 	if len(prev) > 0 {
@@ -393,6 +393,8 @@ func jsonHint(msg string, before []byte) string {
 		return " (JSON has no comments)"
 	case strings.HasSuffix(msg, "looking for beginning of object key string"):
 		return ` (JSON writes keys in double quotes: "sites")`
+	case strings.HasSuffix(msg, "after object key"): // {"id" "a"}: not a comma
+		return ` (a colon is missing between the key and its value, as in "id": "a")`
 	case strings.HasPrefix(msg, `invalid character '"' after`):
 		return " (a comma is missing before it)"
 	}

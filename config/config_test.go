@@ -241,6 +241,8 @@ func TestValidationErrors(t *testing.T) {
 		// a date and time) and the list of one to write
 		{"bad-dates-one.yaml", "feeds[0].kinds[0].dates", "2027-06-12", "must be a list, not a date", `write it ["2027-06-12"]`, 0},
 		{"bad-weekdays-one.yaml", "feeds[0].kinds[0].weekdays", "fri", "must be a list, not text", `write it ["fri"]`, 0},
+		// text with commas is a list written without its brackets: its items
+		{"bad-kinds-commas.yaml", "feeds[0].kinds", "sunrise, sunset,", "must be a list, not text", `write it ["sunrise", "sunset"]`, 0},
 		// a number there: the list of the month's name (6 is June in the
 		// Gregorian calendar's numbering, ISO 8601), as ["6"] is no month;
 		// a weekday's number has no one numbering, so the names are shown

@@ -1031,8 +1031,9 @@ func notMapping(data any) bool {
 // written (a YAML or TOML date as its date, not as a date and time), and,
 // for a list of names, dates or kinds, says to write it as a list of one:
 // `write it ["fri"]` for weekdays: fri, `write it ["2027-06-12"]` for
-// dates: 2027-06-12. nil for a list, for nothing and for a mapping, which
-// the decoder words.
+// dates: 2027-06-12, or, for text with commas, of its items: `write it
+// ["sat", "sun"]` for weekdays: sat, sun. nil for a list, for nothing and
+// for a mapping, which the decoder words.
 func listTypeError(to reflect.Type, data any) error {
 	value, what := showValue(data), describeValue(data)
 	switch x := data.(type) {
@@ -1047,7 +1048,20 @@ func listTypeError(to reflect.Type, data any) error {
 	}
 	hint := ""
 	if to.Elem().Kind() == reflect.String || to.Elem() == kindSpecType {
-		hint = "write it [" + strconv.Quote(value) + "]" // quoted, as JSON needs it and YAML and TOML take it
+		// each item quoted, as JSON needs it and YAML and TOML take it;
+		// text of items with commas between them is a list written
+		// without its brackets ("sat, sun"), not one item
+		items := strings.Split(value, ",")
+		if _, isText := data.(string); !isText {
+			items = []string{value}
+		}
+		var quoted []string
+		for _, it := range items {
+			if it = strings.TrimSpace(it); it != "" || len(items) == 1 {
+				quoted = append(quoted, strconv.Quote(it))
+			}
+		}
+		hint = "write it [" + strings.Join(quoted, ", ") + "]"
 	}
 	return &valueError{Value: value, Msg: "must be a list, not " + what, Hint: hint}
 }

@@ -259,6 +259,7 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-oversize-case.yaml", "service.oversize", "Trim", "must be warn, trim or fail", `did you mean "trim"?`, 0},
 		{"bad-latest-off.yaml", "feeds[0].kinds[0].latest_off", "25:00", "not a clock time", "HH:MM", 0},
 		{"bad-latest-off-number.yaml", "feeds[0].kinds[0].latest_off", "2300", "must be text, not a number", `write it "23:00"`, 0},
+		{"bad-latest-off-hour.yaml", "feeds[0].kinds[0].latest_off", "23", "must be text, not a number", `write it "23:00"`, 0}, // not "00:23"
 		{"bad-plan-start-number.yaml", "feeds[0].plans[0].start", "2000", "must be text, not a number", `write it "20:00"`, 0},
 		// the start is written, though unreadable: its length is no problem of its own
 		{"bad-plan-start-number-for.yaml", "feeds[0].plans[0].start", "2000", "must be text, not a number", `write it "20:00"`, 0},

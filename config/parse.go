@@ -1420,8 +1420,8 @@ var numberWords = map[string]string{
 // nameHint says how to write a value that is not text where key holds
 // text: a month's or a weekday's name for a number in months or weekdays,
 // a clock time "HH:MM" for a number or a TOML time where a time of day
-// belongs (`write it "23:00"` for 2300), ":8080" for a port alone where
-// host:port belongs; "" for other keys and values.
+// belongs (`write it "23:00"` for 2300 and for 23), ":8080" for a port
+// alone where host:port belongs; "" for other keys and values.
 func nameHint(key string, v any) string {
 	clock := key == "latest_off" || key == "earliest_on" || key == "start" || key == "end"
 	var n int64
@@ -1460,7 +1460,10 @@ func nameHint(key string, v any) string {
 		return "write the day's name: mon, tue, wed, thu, fri, sat or sun"
 	}
 	if clock {
-		if n >= 0 && n < 2400 && n%100 < 60 {
+		switch {
+		case n >= 0 && n < 24: // an hour alone: 23 is 23:00, not 00:23
+			return fmt.Sprintf(`write it "%02d:00"`, n)
+		case n >= 100 && n < 2400 && n%100 < 60: // 2300, 930
 			return fmt.Sprintf(`write it "%02d:%02d"`, n/100, n%100)
 		}
 		return `write a local time "HH:MM" in quotes, e.g. "22:00"`

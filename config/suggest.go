@@ -69,7 +69,7 @@ func Suggest(s string, candidates []string) string { return closest(s, candidate
 
 // nearValue is the hint for a value v that is none of the values a key
 // takes: the one v likely means (`did you mean "civil"?` for "Civil",
-// "both" for "bothe"), else hint, what the values mean.
+// "both" for "bothe"), else hint (what the values mean, or the values).
 func nearValue(v string, values []string, hint string) string {
 	if near := closest(v, values); near != "" {
 		return fmt.Sprintf("did you mean %q?", near)

@@ -208,11 +208,7 @@ func (c *Config) Validate() error {
 		case f.Site == "":
 			ps.add(p+".site", "", "is required: the id of the site the feed is computed for", siteList(ids))
 		case !ok:
-			hint := siteList(ids)
-			if near := closest(f.Site, ids); near != "" {
-				hint = fmt.Sprintf("did you mean %q?", near)
-			}
-			ps.add(p+".site", f.Site, "no site has this id", hint)
+			ps.add(p+".site", f.Site, "no site has this id", nearValue(f.Site, ids, siteList(ids)))
 		default:
 			for j, ks := range f.Kinds {
 				if (ks.Kind.Name == "sun-hidden" || ks.Kind.Name == "noon-clear") && !c.Sites[siteIDs[f.Site]].skylineGiven() {
@@ -541,11 +537,8 @@ func (f *Feed) validate(ps *problems, p string) {
 		ps.add(p+".days_ahead", strconv.Itoa(f.DaysAhead), fmt.Sprintf("%s (days_back %d + days_ahead %d) is over 10 years, %d days", window, f.DaysBack, f.DaysAhead, MaxWindowDays), "large feeds are dropped by some calendar apps; use 30 back and 365 ahead")
 	}
 	if f.Color != "" && !IsColorName(f.Color) {
-		hint := "a CSS3 colour name such as \"goldenrod\" or \"steelblue\""
-		if near := closest(f.Color, cssColorNames); near != "" {
-			hint = fmt.Sprintf("did you mean %q?", near)
-		}
-		ps.add(p+".color", f.Color, "not a CSS3 colour name", hint)
+		ps.add(p+".color", f.Color, "not a CSS3 colour name",
+			nearValue(f.Color, cssColorNames, `a CSS3 colour name such as "goldenrod" or "steelblue"`))
 	}
 	checkAlarm(ps, p+".alarm", f.Alarm, false)
 }
@@ -570,11 +563,7 @@ func (ks *KindSpec) validate(ps *problems, p string) {
 		return
 	}
 	if _, ok := kindIndex[ks.Kind.Name]; !ok {
-		hint := ""
-		if near := closest(ks.Kind.Name, KindNames); near != "" {
-			hint = fmt.Sprintf("did you mean %q?", near)
-		}
-		ps.add(p+".kind", ks.Kind.Name, "unknown kind", hint)
+		ps.add(p+".kind", ks.Kind.Name, "unknown kind", nearValue(ks.Kind.Name, KindNames, ""))
 		return
 	}
 	// Kinds built in code bypass ParseKind: check the thresholds again.

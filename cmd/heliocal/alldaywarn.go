@@ -13,10 +13,15 @@ import (
 // kinds entry whose entries are all-day (daily-summary, photoperiod, or
 // all_day: true) or on a plan without a start, all-day too, for a calendar
 // sets no reminder before an all-day entry (see ical's entryAlarm); and
-// all_day: true on a kind whose entries are all-day already. shown are the
-// kinds entries as check's table writes them.
+// all_day: true on a kind whose entries are all-day already; and the
+// feed's own alarm when none of its entries is timed. shown are the kinds
+// entries as check's table writes them.
 func allDayWarnings(f *config.Feed, shown []string) []string {
 	var out []string
+	if f.Alarm.D() > 0 && len(f.Kinds)+len(f.Plans) > 0 && !hasTimedEntries(f) {
+		out = append(out, fmt.Sprintf("feed %q: alarm %s gives no reminder: every entry of the feed is all-day, and reminders are set before timed entries only",
+			f.ID, f.Alarm))
+	}
 	for i, k := range f.Kinds {
 		if !k.AllDay && !k.Kind.IsAllDay() {
 			continue
@@ -40,6 +45,23 @@ func allDayWarnings(f *config.Feed, shown []string) []string {
 		}
 	}
 	return out
+}
+
+// hasTimedEntries reports whether feed f has a kinds entry or a plan
+// whose entries are timed: a kind that is not all-day nor shown all day,
+// or a plan with a start.
+func hasTimedEntries(f *config.Feed) bool {
+	for _, k := range f.Kinds {
+		if !k.AllDay && !k.Kind.IsAllDay() {
+			return true
+		}
+	}
+	for _, p := range f.Plans {
+		if p.Start != "" {
+			return true
+		}
+	}
+	return false
 }
 
 // leapDayWarnings words the plans of feed f on 29 February ("every

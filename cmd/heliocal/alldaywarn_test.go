@@ -55,3 +55,37 @@ func TestAllDayWarnings(t *testing.T) {
 		t.Errorf("window 2027-05-05..2028-02-29:\n%s", strings.Join(r.Warnings, "\n"))
 	}
 }
+
+// allDayOnlyFeed has a feed-level alarm and entries all-day only: a kind
+// all-day by itself, one shown all day, and a plan without start; the
+// second feed has the same alarm and one timed kind (sunset).
+const allDayOnlyFeed = `sites:
+  - {id: farm, latitude: 47.07, longitude: 8.3, timezone: Europe/Zurich}
+feeds:
+  - id: farm-days
+    site: farm
+    alarm: 30m
+    kinds:
+      - daily-summary
+      - {kind: seasons, all_day: true}
+    plans:
+      - {title: Last frost, date: every 04-25}
+  - id: farm-evenings
+    site: farm
+    alarm: 30m
+    kinds:
+      - daily-summary
+      - sunset
+`
+
+// check warns of a feed's alarm when none of its entries is timed, and
+// not when one kind of the feed gives timed entries.
+func TestFeedAlarmAllDayWarning(t *testing.T) {
+	r := checkReportOf(t, allDayOnlyFeed, allDayNow)
+	want := []string{
+		`feed "farm-days": alarm 30m gives no reminder: every entry of the feed is all-day, and reminders are set before timed entries only`,
+	}
+	if !slices.Equal(r.Warnings, want) {
+		t.Errorf("warnings:\n%s\nwant:\n%s", strings.Join(r.Warnings, "\n"), strings.Join(want, "\n"))
+	}
+}

@@ -671,14 +671,23 @@ func TestLoadErrors(t *testing.T) {
 		"syntax-error.toml": "cannot read the file as toml: line 3, column",
 		"syntax-error.json": "cannot read the file as json: line 3: invalid character '}'",
 		// text without quotes is said so, not "unable to parse float"
-		"syntax-bare-text.toml": `cannot read the file as toml: line 7: timezone = Europe/Zurich: text is written in quotes in TOML (write timezone = "Europe/Zurich")`,
-		"not-a-mapping.yaml":    "cannot read the file as yaml: line 2: the document is a list, not a mapping of keys (a configuration starts with keys such as sites: and feeds:)",
-		"two-documents.yaml":    "cannot read the file as yaml: line 11: a second document begins here with ---, and heliocal reads one (write every site and feed under one sites: and one feeds:)",
-		"not-a-mapping.json":    "cannot read the file as json: the document is a list, not a mapping of keys (a configuration starts with keys such as sites: and feeds:)",
+		"syntax-bare-text.toml":    `cannot read the file as toml: line 7: timezone = Europe/Zurich: text is written in quotes in TOML (write timezone = "Europe/Zurich")`,
+		"not-a-mapping.yaml":       "cannot read the file as yaml: line 2: the document is a list, not a mapping of keys (a configuration starts with keys such as sites: and feeds:)",
+		"two-documents.yaml":       "cannot read the file as yaml: line 11: a second document begins here with ---, and heliocal reads one (write every site and feed under one sites: and one feeds:)",
+		"end-marker-document.yaml": "cannot read the file as yaml: line 13: a second document begins here, after the end marker ... of line 12, and heliocal reads one (write every site and feed under one sites: and one feeds:, without ...)",
+		"not-a-mapping.json":       "cannot read the file as json: the document is a list, not a mapping of keys (a configuration starts with keys such as sites: and feeds:)",
 	} {
 		_, err = loadTestdata(t, name)
 		if !errors.Is(err, ErrUnreadable) || !strings.Contains(err.Error(), want) || !strings.HasPrefix(err.Error(), filepath.Join(testdata, name)+": ") {
 			t.Errorf("%s: %v\nwant it to contain %q", name, err, want)
+		}
+	}
+	// a document that ends with ..., followed by comments only or by
+	// nothing, is one document
+	for _, end := range []string{"...\n", "...\n# end\n\n", "... # end\n"} {
+		in := "sites:\n  - {id: x, latitude: 1, longitude: 2, timezone: UTC}\nfeeds:\n  - {id: f, site: x, kinds: [sunrise]}\n" + end
+		if c, err := Parse(strings.NewReader(in), "yaml"); err != nil || len(c.Feeds) != 1 {
+			t.Errorf("%q: %v", end, err)
 		}
 	}
 	// A tab in YAML's indentation is named with its own line: the decoder

@@ -119,7 +119,9 @@ func parseFrom(r io.Reader, format string, env LookupEnv, dir string) (*Config, 
 // working directory: standard input, the demo).
 func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, err error) {
 	if format == "yaml" {
-		if line := secondDocument(data); line > 0 {
+		if line, end := secondDocument(data); end > 0 {
+			return nil, fmt.Errorf("%w as yaml: line %d: a second document begins here, after the end marker ... of line %d, and heliocal reads one (write every site and feed under one sites: and one feeds:, without ...)", ErrUnreadable, line, end)
+		} else if line > 0 {
 			return nil, fmt.Errorf("%w as yaml: line %d: a second document begins here with ---, and heliocal reads one (write every site and feed under one sites: and one feeds:)", ErrUnreadable, line)
 		}
 	}
@@ -221,23 +223,32 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 	return c, nil
 }
 
-// secondDocument returns the line of a YAML document marker ("---") that
-// starts a second document with content, 0 when there is none: the decoder
-// reads the first document alone, and the sites and feeds of the others
-// would be dropped without a word. A marker before the first content, or
-// one followed by comments only, is no second document. The lines are
-// looked at first; the decoder reads the file again only when a marker
-// follows content.
-func secondDocument(data []byte) int {
-	content, line := false, 0
+// secondDocument returns the line where a second YAML document with content
+// begins, 0 when there is none: the decoder reads the first document alone,
+// and the sites and feeds of the others would be dropped without a word. A
+// second document begins at a document marker ("---") that follows content,
+// or at content that follows a document end marker ("...", whose line is
+// end then; 0 for a "---"). A marker before the first content, or one
+// followed by comments only, is no second document. The lines are looked
+// at first; the decoder reads the file again only when a marker follows
+// content.
+func secondDocument(data []byte) (line, end int) {
+	content := false
 	for i, l := range bytes.Split(data, []byte("\n")) {
 		l = bytes.TrimRight(l, "\r")
-		marker := bytes.HasPrefix(l, []byte("---")) && (len(l) == 3 || l[3] == ' ' || l[3] == '\t')
+		marker := docMarker(l, "---")
 		switch {
 		case marker && content:
-			line = i + 1
-		case marker, len(bytes.TrimSpace(l)) == 0, l[0] == '#', l[0] == '%':
+			line, end = i+1, 0
+		case docMarker(l, "...") && content:
+			if end == 0 {
+				end = i + 1
+			}
 			continue
+		case marker, len(bytes.TrimSpace(l)) == 0, l[0] == '#', l[0] == '%', docMarker(l, "..."):
+			continue
+		case end > 0:
+			line = i + 1
 		default:
 			content = true
 			continue
@@ -245,19 +256,34 @@ func secondDocument(data []byte) int {
 		break
 	}
 	if line == 0 {
-		return 0
+		return 0, 0
 	}
 	dec := yaml.NewDecoder(bytes.NewReader(data))
 	var first, second yaml.Node
-	if dec.Decode(&first) != nil || dec.Decode(&second) != nil {
-		return 0 // one document, or a syntax error the reader reports
+	if dec.Decode(&first) != nil {
+		return 0, 0 // a syntax error the reader reports
+	}
+	if end > 0 {
+		// The decoder wants a "---" before a document that follows a
+		// "...", and the reader, which decodes the first one alone,
+		// never sees the rest.
+		return line, end
+	}
+	if dec.Decode(&second) != nil {
+		return 0, 0 // one document, or a syntax error the reader reports
 	}
 	for _, n := range second.Content {
 		if n.Kind != yaml.ScalarNode || n.Tag != "!!null" {
-			return line
+			return line, 0
 		}
 	}
-	return 0
+	return 0, 0
+}
+
+// docMarker reports whether the line l is the YAML document marker m
+// ("---" or "..."), alone or followed by a space, a tab or a comment.
+func docMarker(l []byte, m string) bool {
+	return bytes.HasPrefix(l, []byte(m)) && (len(l) == 3 || l[3] == ' ' || l[3] == '\t')
 }
 
 // readConfig runs viper's reader, turning a panic of a format decoder on

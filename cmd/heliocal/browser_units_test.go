@@ -3,6 +3,9 @@ package main
 import (
 	"io"
 	"net/http"
+	"os"
+	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -13,7 +16,12 @@ import (
 // (the page /at and the builder's preview) that a line break splits: a
 // number and its unit ("to reach 16" over "h"), or the hours and minutes
 // of one length ("Daylight 9 h" over "05 min").
-const unitBreaks = `[...document.querySelectorAll("table.days li")].flatMap(li => {
+var unitBreaks = unitBreaksIn("table.days li")
+
+// unitBreaksIn lists the amounts that a line break splits in the text of
+// the elements the CSS selector sel picks, as unitBreaks does.
+func unitBreaksIn(sel string) string {
+	return `[...document.querySelectorAll(` + strconv.Quote(sel) + `)].flatMap(li => {
   const r = document.createRange(), chars = [];
   const walk = document.createTreeWalker(li, NodeFilter.SHOW_TEXT);
   for (let node = walk.nextNode(); node; node = walk.nextNode()) {
@@ -24,7 +32,7 @@ const unitBreaks = `[...document.querySelectorAll("table.days li")].flatMap(li =
   }
   const text = chars.map(c => c[0]).join("");
   const out = [];
-  for (const m of text.matchAll(/\d+[ \u00a0](?:h|min|s|days?)(?:[ \u00a0]\d+[ \u00a0]min)?(?![A-Za-z])/g)) {
+  for (const m of text.matchAll(/\d+[ \u00a0](?:h|min|s|days?|k?m)(?:[ \u00a0]\d+[ \u00a0]min)?(?![A-Za-z])/g)) {
     for (let i = m.index + 1; i < m.index + m[0].length; i++) {
       if (chars[i][1] > chars[i - 1][1] + 2) {
         out.push(JSON.stringify(m[0].slice(0, i - m.index)) + " over " + JSON.stringify(m[0].slice(i - m.index)) + " in " + JSON.stringify(text));
@@ -34,6 +42,7 @@ const unitBreaks = `[...document.querySelectorAll("table.days li")].flatMap(li =
   }
   return out;
 })`
+}
 
 // On a phone the day-by-day table (/at) and the builder's preview keep a
 // number and its unit on one line, and the hours and minutes of a length:
@@ -82,9 +91,47 @@ func TestBrowserUnitsWhole(t *testing.T) {
 	}
 }
 
-// The page /at joins each amount with no-break spaces (U+00A0), and only
-// the page: the preview's JSON and the feed keep the plain spaces of their
-// bytes. At 59.91° N the lamps of a 16 h program run for hours in December
+// The index page publish writes keeps a number and its unit on one line
+// on a 390 px and a 320 px phone, as the page /at does: the charts'
+// captions ("up to 14 h 30 min", "on 176 days"), the feeds' descriptions,
+// the sites' elevations. The feeds and feeds.json keep their plain spaces.
+func TestBrowserPublishedIndexUnitsWhole(t *testing.T) {
+	ctx := browser(t)
+	out := t.TempDir()
+	if code, _, errOut := runCLI(t, "publish", "--quiet", "--out", out); code != 0 {
+		t.Fatalf("publish: exit %d: %s", code, errOut)
+	}
+	page := "file://" + filepath.Join(out, "index.html")
+	for _, w := range []int64{390, 320} {
+		if err := chromedp.Do(ctx, chromedp.EmulateViewport(w, 800), chromedp.Navigate(page)); err != nil {
+			t.Fatal(err)
+		}
+		split, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](unitBreaksIn("header p, p.place, figcaption, main td")))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(split) > 0 {
+			t.Errorf("the index page at %d px splits %d amounts: %s", w, len(split), strings.Join(split, "; "))
+		}
+	}
+	files, err := filepath.Glob(filepath.Join(out, "*.*"))
+	if err != nil || len(files) < 3 {
+		t.Fatalf("published files: %v %v", files, err)
+	}
+	for _, f := range files {
+		b, err := os.ReadFile(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if filepath.Base(f) != "index.html" && strings.Contains(string(b), "\u00a0") {
+			t.Errorf("%s has a no-break space", filepath.Base(f))
+		}
+	}
+}
+
+// The page /at joins each amount with no-break spaces (U+00A0), as the
+// builder page does in its list of feeds, and only the pages: the
+// preview's JSON and the feed keep the plain spaces of their bytes. At 59.91° N the lamps of a 16 h program run for hours in December
 // and the day is under 12 h (the texts, not the values, are under test).
 func TestTableUnitsNoBreak(t *testing.T) {
 	ts := builderServer(t)
@@ -111,6 +158,11 @@ func TestTableUnitsNoBreak(t *testing.T) {
 	if strings.Contains(page, "16 h") || strings.Contains(page, "17 min") {
 		t.Errorf("the page /at keeps a plain space in an amount")
 	}
+	// the builder page's list of published feeds, a description of the
+	// demo's (fernhollow-lamps) with its amounts
+	if home := get("/"); !strings.Contains(home, "lit up to 16\u00a0h, the seedling house up to 14\u00a0h\u00a030\u00a0min") {
+		t.Errorf("the builder page lacks the lamps' description with its amounts joined")
+	}
 	for _, path := range []string{"/at.json", "/at.ics"} {
 		if body := get(path); strings.Contains(body, "\u00a0") || !strings.Contains(body, "to reach 16 h") {
 			t.Errorf("%s: a no-break space, or no \"to reach 16 h\"", path)
@@ -118,7 +170,7 @@ func TestTableUnitsNoBreak(t *testing.T) {
 	}
 }
 
-// pageWords is an HTML page's text with its no-break spaces (keepUnits)
+// pageWords is an HTML page's text with its no-break spaces (KeepUnits)
 // read as spaces, for the tests that compare its words with the preview's
 // JSON or the feed.
 func pageWords(page string) string { return strings.ReplaceAll(page, "\u00a0", " ") }

@@ -71,7 +71,7 @@ func TestIndexPlaceLineNamesHorizon(t *testing.T) {
 	whole, sharded := t.TempDir(), t.TempDir()
 	publishShards(t, cfgPath, whole)
 	publishShards(t, cfgPath, sharded, "2/3", "0/3", "1/3")
-	index := sameIndex(t, whole, sharded)
+	index := pageWords(sameIndex(t, whole, sharded))
 	for id, cond := range want {
 		line := "48.2000° N, 16.4000° E, elevation 170 m, time zone Europe/Vienna"
 		if cond != "" {
@@ -184,7 +184,7 @@ func TestMergeOldManifestsNamesHorizon(t *testing.T) {
 		t.Fatalf("the manifests had %d fields of horizon and air, want 5", dropped)
 	}
 	publishShards(t, cfgPath, sharded, "2/3")
-	merged := sameIndex(t, whole, sharded)
+	merged := pageWords(sameIndex(t, whole, sharded))
 	for _, cond := range []string{"horizon 1.5°", "skyline 1–8° (4 points, hills.csv)", "horizon −0.5°, refraction for 1030 hPa and −20 °C"} {
 		if !strings.Contains(merged, ", elevation 170 m, "+cond+", time zone Europe/Vienna</p>") {
 			t.Errorf("the merged index does not name %q", cond)

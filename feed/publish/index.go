@@ -259,7 +259,7 @@ func renderIndex(ctx context.Context, l *listing, opts *RenderOptions) ([]byte, 
 // entities), which keeps it easy to check and to post-process.
 // indexTemplate is parsed on first use, not when any command starts.
 var indexTemplate = sync.OnceValue(func() *template.Template {
-	return template.Must(template.New("index").Funcs(template.FuncMap{"urlBreaks": URLBreaks}).Parse(`<!DOCTYPE html>
+	return template.Must(template.New("index").Funcs(template.FuncMap{"urlBreaks": URLBreaks, "units": KeepUnits}).Parse(`<!DOCTYPE html>
 <html lang="en">
 <head>
 <meta charset="utf-8"/>
@@ -308,21 +308,21 @@ svg .tl{fill:#287a36;stroke:#fbfaf6;stroke-width:3px;stroke-linejoin:round;paint
 <body>
 <header>
 <h1>{{.Title}}</h1>
-{{with .Intro}}<p class="intro">{{.}}</p>{{end}}
+{{with .Intro}}<p class="intro">{{units .}}</p>{{end}}
 <p>{{.Feeds}} calendar feed{{if ne .Feeds 1}}s{{end}}, {{.Events}} event{{if ne .Events "1"}}s{{end}}, {{.Size}}{{if .Generated}}, computed on {{.Generated}} (UTC){{end}}.
 {{if .Relative}}Subscribe by adding a feed's address (the link below, made absolute with this page's address) to your calendar app as a subscription.{{else}}The webcal link subscribes in your calendar app; the https address can be pasted into any app's "subscribe by URL".{{end}}
-Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{.}}{{end}}</p>
+Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{units .}}{{end}}</p>
 </header>
 <main>
 <aside class="caution" role="note"><strong>Caution.</strong> {{.Caution}}</aside>
 {{range .Sites}}
 <section id="site-{{.ID}}">
 <h2>{{.Name}}</h2>
-<p class="place">{{.Coords}}, elevation {{.Elevation}}{{with .Conditions}}, {{.}}{{end}}, time zone {{.Zone}}</p>
+<p class="place">{{.Coords}}, elevation {{units .Elevation}}{{with .Conditions}}, {{units .}}{{end}}, time zone {{.Zone}}</p>
 {{with .Chart}}<figure>
 {{template "drawing" .Desk}}
 {{template "drawing" .Phone}}
-<figcaption>{{.Summary}} Local clock time (hours down, months across) of
+<figcaption>{{units .Summary}} Local clock time (hours down, months across) of
 <span class="key rise"></span>sunrise and
 <span class="key set"></span>sunset{{if .Lamps}},
 <span class="key lamp"></span>lamp periods{{end}}{{if .Dark}},
@@ -330,12 +330,12 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{
 <span class="key thr"></span>photoperiod threshold crossings{{end}}{{if .Today}},
 <span class="key today"></span>today{{if ne .Today.PastW "0"}} (the weeks before it shaded){{end}}{{end}}; along the top,
 <svg class="swatch moonkey" viewBox="0 0 10 10" width="10" height="10" aria-hidden="true"><circle class="moon" cx="5" cy="5" r="3.5"/></svg>new and
-<svg class="swatch moonkey" viewBox="0 0 10 10" width="10" height="10" aria-hidden="true"><circle class="moon full" cx="5" cy="5" r="3.5"/></svg>full Moon.{{if .Marks}} <span class="key mark"></span>Red lines:{{range $i, $m := .Marks}}{{if $i}};{{end}} {{$m.Label}} ({{$m.Date}}){{end}}.{{end}}{{with .Held}} {{.}}{{end}}</figcaption>
+<svg class="swatch moonkey" viewBox="0 0 10 10" width="10" height="10" aria-hidden="true"><circle class="moon full" cx="5" cy="5" r="3.5"/></svg>full Moon.{{if .Marks}} <span class="key mark"></span>Red lines:{{range $i, $m := .Marks}}{{if $i}};{{end}} {{units $m.Label}} ({{$m.Date}}){{end}}.{{end}}{{with .Held}} {{units .}}{{end}}</figcaption>
 </figure>
 {{end}}<table>
 <thead><tr><th>Feed</th><th class="num">Events</th><th class="num">Size</th><th>Subscribe</th></tr></thead>
 <tbody>
-{{range .Feeds}}<tr id="feed-{{.ID}}"><td><strong>{{.Title}}</strong>{{with .Description}}<br/>{{.}}{{end}}<br/><code>{{.ID}}</code></td><td class="num">{{.Events}}<span class="unit"> event{{if ne .Events "1"}}s{{end}}</span></td><td class="num">{{.Size}}</td><td>{{if .Webcal}}<a href="{{.Webcal}}">webcal</a> · {{end}}<a href="{{.HTTPS}}">{{if .Webcal}}https{{else}}{{.File}}{{end}}</a>{{if .Webcal}}<br/><code>{{urlBreaks .HTTPS}}</code>{{end}}</td></tr>
+{{range .Feeds}}<tr id="feed-{{.ID}}"><td><strong>{{.Title}}</strong>{{with .Description}}<br/>{{units .}}{{end}}<br/><code>{{.ID}}</code></td><td class="num">{{.Events}}<span class="unit"> event{{if ne .Events "1"}}s{{end}}</span></td><td class="num">{{.Size}}</td><td>{{if .Webcal}}<a href="{{.Webcal}}">webcal</a> · {{end}}<a href="{{.HTTPS}}">{{if .Webcal}}https{{else}}{{.File}}{{end}}</a>{{if .Webcal}}<br/><code>{{urlBreaks .HTTPS}}</code>{{end}}</td></tr>
 {{end}}</tbody>
 </table>
 </section>

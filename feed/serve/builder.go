@@ -12,7 +12,6 @@ import (
 	"net/http"
 	"net/url"
 	"path"
-	"regexp"
 	"slices"
 	"strconv"
 	"strings"
@@ -114,7 +113,7 @@ var (
 			"webcal":    func(u string) template.URL { return template.URL(webcal(u)) },
 			"urlBreaks": publish.URLBreaks,
 			"legal":     func() string { return LegalCaution },
-			"units":     keepUnits,
+			"units":     publish.KeepUnits,
 		}).ParseFS(assetFiles, "assets/*.html"))
 	})
 	staticAssets = sync.OnceValue(loadStatic)
@@ -847,23 +846,4 @@ func feedLinks(doc []byte, base string) []homeFeed {
 		out = append(out, homeFeed{ID: f.ID, Title: f.Title, Site: f.Site, HTTPS: f.URL})
 	}
 	return out
-}
-
-// The spaces keepUnits makes no-break: between a number and its unit
-// ("16 h", "45 min", "+1 day") and between the hours and the minutes of
-// one length ("9 h 05 min").
-var (
-	unitSpace  = regexp.MustCompile(`(\d) (h|min|s|days?|k?m)\b`)
-	hourMinute = regexp.MustCompile("(\\d\u00a0h) (\\d+\u00a0min)")
-)
-
-// keepUnits joins the amounts of a text of the HTML pages with no-break
-// spaces (U+00A0), so that a narrow screen does not put "16" at the end of
-// one line and "h" on the next; the feeds, JSON and CSV keep their plain
-// spaces. builder.js's keepUnits does the same for the preview.
-func keepUnits(s string) string {
-	if !strings.Contains(s, " ") {
-		return s
-	}
-	return hourMinute.ReplaceAllString(unitSpace.ReplaceAllString(s, "$1\u00a0$2"), "$1\u00a0$2")
 }

@@ -138,8 +138,9 @@ function render(res) {
 
 // keepUnits joins a number and its unit ("16 h", "45 min", "+1 day") and
 // the hours and minutes of one length ("9 h 05 min") with no-break spaces,
-// as the server's keepUnits does for the page /at: a narrow screen breaks
-// a line elsewhere. The JSON keeps its plain spaces.
+// as the server's publish.KeepUnits does for the page /at and the index
+// page: a narrow screen breaks a line elsewhere. The JSON keeps its plain
+// spaces.
 function keepUnits(s) {
   return s.replace(/(\d) (h|min|s|days?|k?m)\b/g, "$1\u00a0$2").replace(/(\d\u00a0h) (\d+\u00a0min)/g, "$1\u00a0$2");
 }

@@ -1,0 +1,66 @@
+package publish
+
+import (
+	"context"
+	"regexp"
+	"strings"
+	"testing"
+
+	"heliocal/feed"
+)
+
+// A number and its unit, and the hours and minutes of one length, are
+// joined by no-break spaces (U+00A0); other spaces and words stay.
+func TestKeepUnits(t *testing.T) {
+	for _, tc := range []struct{ in, want string }{
+		{"Daylight 6 h 17 min", "Daylight 6\u00a0h\u00a017\u00a0min"},
+		{"to reach 16 h on 5 Jun", "to reach 16\u00a0h on 5 Jun"},
+		{"Lamp periods on 176 days, +1 day", "Lamp periods on 176\u00a0days, +1\u00a0day"},
+		{"elevation 240 m, 1.5 km away, 30 s", "elevation 240\u00a0m, 1.5\u00a0km away, 30\u00a0s"},
+		{"12 hours, 3 minutes, 5 mice, 2026 spring", "12 hours, 3 minutes, 5 mice, 2026 spring"},
+		{"h 12", "h 12"},
+		{"", ""},
+	} {
+		if got := KeepUnits(tc.in); got != tc.want {
+			t.Errorf("KeepUnits(%q) = %q, want %q", tc.in, got, tc.want)
+		}
+	}
+}
+
+// plainAmount is a number and its unit apart with a plain space, the break
+// a narrow screen may put between them.
+var plainAmount = regexp.MustCompile(`\d (h|min|s|days?|k?m)\b`)
+
+// The index page joins the amounts of the charts' captions and of the
+// feeds' descriptions; the feeds and feeds.json keep the plain spaces of
+// their bytes.
+func TestIndexKeepsUnits(t *testing.T) {
+	cals := testCalendars(t, "")
+	opts := testOptions()
+	opts.Charts = func(_ context.Context, s feed.Site, _ []Trimmed) (*SiteChart, error) { return usnoChart(t, s), nil }
+	opts.Page = &PageText{Intro: "Lamps run up to 16 h.", Descriptions: map[string]string{cals[0].ID: "The seedling house is lit up to 14 h 30 min."}}
+	b, err := Render(context.Background(), Calendars(cals...), opts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	page := string(b.File(IndexName).Data)
+	for _, want := range []string{"up to 16\u00a0h.", "up to 14\u00a0h\u00a030\u00a0min."} {
+		if !strings.Contains(page, want) {
+			t.Errorf("the index lacks %q", want)
+		}
+	}
+	captions := regexp.MustCompile(`(?s)<figcaption>.*?</figcaption>`).FindAllString(page, -1)
+	if len(captions) == 0 || !strings.Contains(captions[0], "\u00a0h") {
+		t.Fatalf("no caption with an amount: %d captions", len(captions))
+	}
+	for _, c := range captions {
+		if m := plainAmount.FindString(c); m != "" {
+			t.Errorf("a caption keeps a plain space in %q", m)
+		}
+	}
+	for _, f := range b.Files {
+		if f.Name != IndexName && strings.Contains(string(f.Data), "\u00a0") {
+			t.Errorf("%s has a no-break space", f.Name)
+		}
+	}
+}

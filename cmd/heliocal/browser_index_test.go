@@ -234,3 +234,91 @@ func TestBrowserPublishedIndexReadable(t *testing.T) {
 		}
 	}
 }
+
+// phoneChart reads the year chart shown for the first site: whether it is
+// the phone's, its box and its plot's height in CSS pixels, the size its
+// labels are drawn at (the font's size times the chart's scale), the hour
+// labels and the threshold labels shown, and the months labelled in it
+// (those with room for a label, and those shown).
+const phoneChart = `(() => {
+  const svg = [...document.querySelector("figure").querySelectorAll(":scope > svg")].find(s => getComputedStyle(s).display !== "none");
+  const shown = (sel) => [...svg.querySelectorAll(sel)].filter(t => getComputedStyle(t).display !== "none");
+  const box = svg.getBoundingClientRect(), yl = shown("text.yl");
+  return {
+    phone: svg.classList.contains("ph"), width: box.width, height: box.height,
+    plot: svg.querySelector("rect.plot").getBoundingClientRect().height,
+    px: parseFloat(getComputedStyle(yl[0]).fontSize) * svg.getScreenCTM().a,
+    hours: yl.map(t => t.textContent), thresholds: shown("text.tl").length,
+    months: svg.querySelectorAll("text.mo:not(.short)").length, monthsShown: shown("text.mo").length,
+  };
+})()`
+
+// The index's year chart as the README and docs/feeds.md describe it, at
+// Fen Glasshouses (52.2° N, a 12 h photoperiod): on a wide screen the
+// threshold crossings are labelled "12 h ↑"/"12 h ↓" on the chart; under
+// 40rem (640 px) only the caption names them; on a phone (under 28rem) the
+// page shows a chart of its own, taller than wide, whose plot is about 345
+// px tall on a 390 px phone (the wide chart, scaled to the width, had 117),
+// its labels drawn about 12.4 px tall there and 10.9 px on a 320 px phone,
+// outside the plot, the hours as "00", "06" … "24", every month with room
+// for a label labelled on the 390 px phone and every second one on the
+// 320 px phone.
+func TestBrowserPublishedIndexPhoneChart(t *testing.T) {
+	ctx := browser(t)
+	page := publishChartSites(t)
+	if err := chromedp.Do(ctx, chromedp.Navigate(page)); err != nil {
+		t.Fatal(err)
+	}
+	type chart struct {
+		Phone                   bool
+		Width, Height, Plot, Px float64
+		Hours                   []string
+		Thresholds              int
+		Months                  int
+		MonthsShown             int `json:"monthsShown"`
+	}
+	for _, w := range []struct {
+		width      int64
+		phone      bool
+		thresholds bool    // the threshold labels drawn on the chart
+		plot, px   float64 // on a phone: the plot's height and the labels' size, in CSS pixels
+		everyOther bool    // on a phone: every second month labelled
+	}{
+		{1280, false, true, 0, 0, false}, {768, false, true, 0, 0, false}, {600, false, false, 0, 0, false},
+		{390, true, false, 345, 12.4, false}, {320, true, false, 0, 10.9, true},
+	} {
+		if err := chromedp.Do(ctx, chromedp.EmulateViewport(w.width, 900)); err != nil {
+			t.Fatal(err)
+		}
+		c, err := chromedp.Run(ctx, chromedp.Evaluate[chart](phoneChart))
+		if err != nil {
+			t.Fatal(err)
+		}
+		t.Logf("%d px: %+v", w.width, c)
+		if c.Phone != w.phone {
+			t.Errorf("%d px: the phone's chart shown %v, want %v", w.width, c.Phone, w.phone)
+			continue
+		}
+		if (c.Thresholds > 0) != w.thresholds {
+			t.Errorf("%d px: %d threshold labels on the chart, want them shown %v", w.width, c.Thresholds, w.thresholds)
+		}
+		if !w.phone {
+			continue
+		}
+		if c.Height <= c.Width {
+			t.Errorf("%d px: the phone's chart is %.0f by %.0f px, want it taller than wide", w.width, c.Width, c.Height)
+		}
+		if w.plot > 0 && (c.Plot < w.plot-5 || c.Plot > w.plot+5) {
+			t.Errorf("%d px: the plot is %.1f px tall, want about %g", w.width, c.Plot, w.plot)
+		}
+		if c.Px < w.px-0.2 || c.Px > w.px+0.2 {
+			t.Errorf("%d px: labels %.2f px, want about %g", w.width, c.Px, w.px)
+		}
+		if !slices.Equal(c.Hours, []string{"00", "06", "12", "18", "24"}) {
+			t.Errorf("%d px: hour labels %q, want 00, 06 … 24", w.width, c.Hours)
+		}
+		if want := c.Months; w.everyOther && (c.MonthsShown < want/2 || c.MonthsShown > (want+1)/2) || !w.everyOther && c.MonthsShown != want {
+			t.Errorf("%d px: %d of %d month labels shown, want every second one %v", w.width, c.MonthsShown, c.Months, w.everyOther)
+		}
+	}
+}

@@ -10,6 +10,7 @@ import (
 	"net"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"sync/atomic"
 	"syscall"
@@ -499,6 +500,50 @@ func TestFileEquals(t *testing.T) {
 			got, err := fileEquals(p, tc.mem)
 			if err != nil || got != tc.want {
 				t.Errorf("fileEquals = %v, %v; want %v", got, err, tc.want)
+			}
+		})
+	}
+}
+
+// A commit keeps each file it replaces as a hard link ".<name>.tmp-prev-
+// <digits>" until it is done; a run killed before then leaves them, and
+// the next commit into the directory removes them, and only them, whether
+// it is Publish's or WriteBundle's (docs/feeds.md, Publishing).
+func TestCommitRemovesKeptFilesOfAKilledRun(t *testing.T) {
+	for _, via := range []string{"Publish", "WriteBundle"} {
+		t.Run(via, func(t *testing.T) {
+			dir := t.TempDir()
+			publishTo(t, dir, "", testOptions())
+			var left []string
+			for _, name := range []string{FeedsJSONName, IndexName} {
+				prev := filepath.Join(dir, "."+name+prevInfix+"4021977153")
+				if err := os.Link(filepath.Join(dir, name), prev); err != nil {
+					t.Fatal(err)
+				}
+				left = append(left, filepath.Base(prev))
+			}
+			// a file of the user's that looks like one is kept
+			mine := filepath.Join(dir, "notes"+prevInfix+"1.txt")
+			if err := os.WriteFile(mine, []byte("mine"), 0o644); err != nil {
+				t.Fatal(err)
+			}
+			want, err := Render(context.Background(), Calendars(testCalendars(t, " (revised)")...), testOptions())
+			if err != nil {
+				t.Fatal(err)
+			}
+			if via == "Publish" {
+				publishTo(t, dir, " (revised)", testOptions())
+			} else if _, err := (&Writer{Dir: dir}).WriteBundle(context.Background(), want); err != nil {
+				t.Fatal(err)
+			}
+			if tmp := tempNames(t, dir); !slices.Equal(tmp, []string{filepath.Base(mine)}) {
+				t.Errorf("after the next commit: %v, want only %s (a kill left %v)", tmp, filepath.Base(mine), left)
+			}
+			now := snapshot(t, dir)
+			for _, f := range want.Files {
+				if f.Name != FeedsJSONName && !bytes.Equal(now[f.Name], f.Data) {
+					t.Errorf("%s is not the revision published (%d bytes, want %d)", f.Name, len(now[f.Name]), len(f.Data))
+				}
 			}
 		})
 	}

@@ -238,8 +238,9 @@ func TestBrowserPublishedIndexReadable(t *testing.T) {
 // phoneChart reads the year chart shown for the first site: whether it is
 // the phone's, its box and its plot's height in CSS pixels, the size its
 // labels are drawn at (the font's size times the chart's scale), the hour
-// labels and the threshold labels shown, and the months labelled in it
-// (those with room for a label, and those shown).
+// labels and the threshold labels shown, and the months labelled in it:
+// those with 27 days or more in the chart and those with fewer (short), and
+// of each those shown.
 const phoneChart = `(() => {
   const svg = [...document.querySelector("figure").querySelectorAll(":scope > svg")].find(s => getComputedStyle(s).display !== "none");
   const shown = (sel) => [...svg.querySelectorAll(sel)].filter(t => getComputedStyle(t).display !== "none");
@@ -249,14 +250,16 @@ const phoneChart = `(() => {
     plot: svg.querySelector("rect.plot").getBoundingClientRect().height,
     px: parseFloat(getComputedStyle(yl[0]).fontSize) * svg.getScreenCTM().a,
     hours: yl.map(t => t.textContent), thresholds: shown("text.tl").length,
-    months: svg.querySelectorAll("text.mo:not(.short)").length, monthsShown: shown("text.mo").length,
+    months: svg.querySelectorAll("text.mo:not(.short)").length, monthsShown: shown("text.mo:not(.short)").length,
+    short: svg.querySelectorAll("text.mo.short").length, shortShown: shown("text.mo.short").length,
   };
 })()`
 
 // The index's year chart as the README and docs/feeds.md describe it, at
 // Fen Glasshouses (52.2° N, a 12 h photoperiod): on a wide screen the
 // threshold crossings are labelled "12 h ↑"/"12 h ↓" on the chart; under
-// 40rem (640 px) only the caption names them; on a phone (under 28rem) the
+// 40rem (640 px) only the caption names them, and a month with fewer than
+// 27 of its days in the chart is left unlabelled; on a phone (under 28rem) the
 // page shows a chart of its own, taller than wide, whose plot is about 345
 // px tall on a 390 px phone (the wide chart, scaled to the width, had 117),
 // its labels drawn about 12.4 px tall there and 10.9 px on a 320 px phone,
@@ -276,6 +279,8 @@ func TestBrowserPublishedIndexPhoneChart(t *testing.T) {
 		Thresholds              int
 		Months                  int
 		MonthsShown             int `json:"monthsShown"`
+		Short                   int
+		ShortShown              int `json:"shortShown"`
 	}
 	for _, w := range []struct {
 		width      int64
@@ -301,6 +306,11 @@ func TestBrowserPublishedIndexPhoneChart(t *testing.T) {
 		}
 		if (c.Thresholds > 0) != w.thresholds {
 			t.Errorf("%d px: %d threshold labels on the chart, want them shown %v", w.width, c.Thresholds, w.thresholds)
+		}
+		// The chart starts four weeks before today: on the first half of
+		// a month's days the month before it has fewer than 27 in it.
+		if wide := w.width >= 640; c.Short > 0 && (c.ShortShown > 0) != wide {
+			t.Errorf("%d px: %d of %d months with fewer than 27 days in the chart labelled, want them labelled %v", w.width, c.ShortShown, c.Short, wide)
 		}
 		if !w.phone {
 			continue

@@ -179,12 +179,14 @@ feeds:
       - {title: Film night, date: every friday, weekdays: [fri]}
       - {title: Open day, date: 2027-06-12, months: [jun], weekdays: [sat]}
       - {title: Last year, date: 2026-06-13, weekdays: [sun]}
+      - {title: Open air, date: 2027-06-12, months: [jul]}
 `, windowNow)
 	want := []string{
 		`feed "events": plan "Rehearsal": 2027-06-12 is a Saturday, not in its weekdays (fri): it will never be published`,
 		`feed "events": plan "Frost check": its dates (every 04-25) are in April, not in its months (may, jun): it will never be published`,
 		`feed "events": plan "Star party": its dates (saturday nearest new-moon) are Saturdays, not in its weekdays (fri, sun): it will never be published`,
 		`feed "events": plan "Last year": 2026-06-13 is a Saturday, not in its weekdays (sun): it will never be published`,
+		`feed "events": plan "Open air": 2027-06-12 is in June, not in its months (jul): it will never be published`,
 	}
 	if !slices.Equal(r.Warnings, want) {
 		t.Errorf("warnings:\n%s\nwant:\n%s", strings.Join(r.Warnings, "\n"), strings.Join(want, "\n"))

@@ -1145,7 +1145,7 @@ func goBack(start, end time.Time, loc *time.Location) (words string, across bool
 		how = "back from summer time"
 	}
 	at := change.In(time.FixedZone(abbr, off)) // the clock before the change
-	return fmt.Sprintf(" (on %s at %s the clocks go %s by %s)", at.Format("Mon 2 Jan 2006"), at.Format("15:04 MST"), how, amount(by)), across
+	return fmt.Sprintf(" (on %s at %s the clocks go %s by %s)", at.Format("Mon 2 Jan 2006"), at.Format("15:04 ")+ZoneLabel(abbr), how, amount(by)), across
 }
 
 // appendMoved appends what follows a plan's time shown: " the next day (Sun

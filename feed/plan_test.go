@@ -971,4 +971,17 @@ func TestPlanClockRepeatedSaysSo(t *testing.T) {
 	if want := "From 01:30:00 EDT (on Sun 7 Nov 2027 at 02:00 EDT the clocks go back from summer time by 1 h)."; !strings.HasPrefix(es[1].Description, want) {
 		t.Errorf("7 November: %q, want %q", es[1].Description, want)
 	}
+	// America/Santiago, whose abbreviations the tz database writes as
+	// offsets ("-03", "-04"): the clocks go back from 00:00 UT − 3 h to 23:00
+	// UT − 4 h at 03:00 UT on Sunday 4 April 2027 (Rule Chile 2023 max - Apr
+	// Sun>=2 3:00u 0 -); the change is named as the times are, "UTC−03",
+	// not "-03", which reads as a subtraction.
+	scl := site(t, "scl", -33.45, -70.67, "America/Santiago")
+	es = planEntries(t, scl, "2027-04-03", "2027-04-03", config.Plan{Title: "Night pick", Date: "every day", Start: "23:15", For: config.Duration(time.Hour)})
+	if len(es) != 1 {
+		t.Fatalf("%d entries", len(es))
+	}
+	if want := "From 23:15:00 UTC−03 to 23:15:00 UTC−04 (on Sun 4 Apr 2027 at 00:00 UTC−03 the clocks go back from summer time by 1 h)."; !strings.HasPrefix(es[0].Description, want) {
+		t.Errorf("3 April: %q, want %q", es[0].Description, want)
+	}
 }

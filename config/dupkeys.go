@@ -161,6 +161,7 @@ func (d *dupFinder) yaml(data []byte) {
 		case yaml.MappingNode:
 			for i := 0; i+1 < len(n.Content); i += 2 {
 				k := n.Content[i]
+				keepClockDecimal(k.Value, n.Content[i+1])
 				walk(n.Content[i+1], d.key(path, k.Value, k.Line, k.Column))
 			}
 		case yaml.SequenceNode:
@@ -190,6 +191,33 @@ func keepDateAsWritten(n *yaml.Node) {
 	if len(date) != len(time.DateOnly) {
 		n.Tag = "!!str"
 	}
+}
+
+// keepClockDecimal makes the number of a plain YAML scalar written with a
+// leading zero where a clock time belongs (latest_off: 0530) the decimal
+// number written, 530, as YAML 1.2 reads it: the decoder would read it as
+// octal, 344, and the error's hint would be "03:44", not "05:30". A number
+// is refused there either way; no accepted file reads otherwise (the
+// document then decodes otherwise than the text, as for keepDateAsWritten).
+func keepClockDecimal(key string, n *yaml.Node) {
+	switch key {
+	case "latest_off", "earliest_on", "start", "end":
+	default:
+		return
+	}
+	v := n.Value
+	if n.Kind != yaml.ScalarNode || n.Tag != "!!int" || n.Style != 0 || len(v) < 2 || v[0] != '0' {
+		return
+	}
+	for _, c := range v {
+		if c < '0' || c > '7' {
+			return // 0930 is read as decimal already; 0o530 is octal as written
+		}
+	}
+	if v = strings.TrimLeft(v, "0"); v == "" {
+		v = "0"
+	}
+	n.Value = v
 }
 
 func (d *dupFinder) toml(data []byte) {

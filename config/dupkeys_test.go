@@ -203,3 +203,20 @@ kind = "sunset"
 		t.Errorf("problems:\n%v\nwant among them:\n%s\nand feeds[1].site", err, strings.Join(want, "\n"))
 	}
 }
+
+// A clock time written in YAML as a number with a leading zero is told the
+// time written: YAML 1.1, which the decoder follows there, reads 0530 as
+// octal, 344 ("03:44"), and 0700 as 448 ("04:48"); YAML 1.2 (yaml.org/spec/
+// 1.2.2, 10.3.2 "Tag Resolution": octal is 0o…) reads them as 530 and 700.
+func TestClockWrittenWithLeadingZero(t *testing.T) {
+	const head = "sites:\n  - {id: a, latitude: 47.5, longitude: 9.7, timezone: Europe/Zurich}\nfeeds:\n  - id: f\n    site: a\n"
+	for in, want := range map[string]string{
+		"    kinds:\n      - kind: lighting:16h\n        earliest_on: 0530\n":          `feeds[0].kinds[0].earliest_on: 530: must be text, not a number (write it "05:30")`,
+		"    plans:\n      - title: x\n        date: every day\n        start: 0700\n": `feeds[0].plans[0].start: 700: must be text, not a number (write it "07:00")`,
+	} {
+		_, err := Parse(strings.NewReader(head+in), "yaml")
+		if err == nil || !strings.Contains(err.Error(), want) {
+			t.Errorf("%q: %v\nwant %q", in, err, want)
+		}
+	}
+}

@@ -708,6 +708,9 @@ func TestLoadErrors(t *testing.T) {
 	for in, want := range map[string]string{
 		"[[feeds]]\nkinds = [sunrise, sunset]\n": `line 2: kinds = [sunrise, sunset]: text is written in quotes in TOML (write kinds = ["sunrise", "sunset"])`,
 		"[[feeds]]\nutc = yes # in UTC\n":        `line 2: utc = yes: not a TOML value (write utc = true)`,
+		"[[feeds.kinds]]\nweekdays = sat\n":      `line 2: weekdays = sat: text is written in quotes in TOML (write weekdays = ["sat"])`, // not "sat", which is no list
+		"[[feeds.kinds]]\noffset = -30m\n":       `line 2: offset = -30m: text is written in quotes in TOML (write offset = "-30m")`,
+		"[[feeds]]\nalarm = 1h30m\n":             `line 2: alarm = 1h30m: text is written in quotes in TOML (write alarm = "1h30m")`,
 	} {
 		_, err = Parse(strings.NewReader(in), "toml")
 		if !errors.Is(err, ErrUnreadable) || !strings.HasSuffix(err.Error(), want) {

@@ -451,6 +451,8 @@ func tomlBareText(data []byte, row int) string {
 		w = strings.TrimSpace(w)
 		r, _ := utf8.DecodeRuneInString(w)
 		switch {
+		case isBareDuration(w): // offset = -30m
+			return strconv.Quote(w), true
 		case !unicode.IsLetter(r), w == "true", w == "false", w == "inf", w == "nan", strings.ContainsAny(w, "\"'[]{}="):
 			return w, false
 		case strings.EqualFold(w, "yes"), strings.EqualFold(w, "on"):
@@ -481,11 +483,25 @@ func tomlBareText(data []byte, row int) string {
 		if written, bare = quoted(value); !bare {
 			return ""
 		}
+		switch key { // a list of one: weekdays = "sat" would be refused too
+		case "kinds", "weekdays", "months", "dates", "trusted_proxies":
+			written = "[" + written + "]"
+		}
 	}
 	if written == "true" || written == "false" {
 		return fmt.Sprintf("%s = %s: not a TOML value (write %s = %s)", key, value, key, written)
 	}
 	return fmt.Sprintf("%s = %s: text is written in quotes in TOML (write %s = %s)", key, value, key, written)
+}
+
+// isBareDuration says whether w is a duration with its unit, "-30m" or
+// "1h30m", which TOML refuses unquoted (the parser's "expected newline").
+func isBareDuration(w string) bool {
+	if w == "" || w[len(w)-1] < 'a' || w[len(w)-1] > 'z' {
+		return false
+	}
+	_, err := time.ParseDuration(w)
+	return err == nil
 }
 
 // quoteBudget bounds the bytes quoteTOMLDates has the TOML parser read

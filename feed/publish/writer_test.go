@@ -548,3 +548,60 @@ func TestCommitRemovesKeptFilesOfAKilledRun(t *testing.T) {
 		})
 	}
 }
+
+// Where the file system cannot make the hard link that keeps a replaced
+// file's previous content, the commit replaces it all the same, and a
+// failure after it puts nothing back past it: the files replaced before the
+// failure stay new, feeds.json (new too) lists them as they are, and the
+// error says where putting back stopped (docs/feeds.md, Publishing). The
+// link is made to fail by taking away the file just before it is linked;
+// the commit then fails at its last rename, index.html's.
+func TestFailedCommitWithoutLinksSaysWhatStaysNew(t *testing.T) {
+	dir := t.TempDir()
+	publishTo(t, dir, "", testOptions())
+	renames := 0
+	w := &Writer{Dir: dir, step: func(what string) {
+		if name, ok := strings.CutPrefix(what, "keep "); ok {
+			if err := os.Remove(filepath.Join(dir, name)); err != nil {
+				t.Fatal(err)
+			}
+		}
+		if name, ok := strings.CutPrefix(what, "rename "); ok {
+			if renames++; name == IndexName {
+				tmp, err := filepath.Glob(filepath.Join(dir, "."+name+".tmp-[0-9]*"))
+				if err != nil || len(tmp) != 1 {
+					t.Fatalf("temporary file of %s: %v %v", name, tmp, err)
+				}
+				if err := os.Remove(tmp[0]); err != nil {
+					t.Fatal(err)
+				}
+			}
+		}
+	}}
+	_, err := Publish(context.Background(), Calendars(testCalendars(t, " (revised)")...), testOptions(), w)
+	want := "publish: replace " + filepath.Join(dir, IndexName) + ": no such file or directory; putting back the files published before stopped at " +
+		FeedsJSONName + ": its previous content could not be kept"
+	if err == nil || err.Error() != want {
+		t.Fatalf("error:\n%v\nwant:\n%s", err, want)
+	}
+	revised, err := Render(context.Background(), Calendars(testCalendars(t, " (revised)")...), testOptions())
+	if err != nil {
+		t.Fatal(err)
+	}
+	now := snapshot(t, dir)
+	feeds := 0
+	for _, f := range revised.Files {
+		if strings.HasSuffix(f.Name, ".ics") {
+			feeds++
+			if !bytes.Equal(now[f.Name], f.Data) {
+				t.Errorf("%s is not the new feed (%d bytes, want %d)", f.Name, len(now[f.Name]), len(f.Data))
+			}
+		}
+	}
+	if bad, n := listedMismatches(t, dir); len(bad) > 0 || n != feeds {
+		t.Errorf("feeds.json lists %d feeds, want the %d new ones; mismatches:\n%s", n, feeds, strings.Join(bad, "\n"))
+	}
+	if renames != 6 {
+		t.Errorf("%d renames, want 6: feeds.json without the replaced feeds, the three feeds, feeds.json, index.html", renames)
+	}
+}

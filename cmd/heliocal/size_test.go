@@ -166,7 +166,7 @@ func TestCheckOversizeModes(t *testing.T) {
 					t.Errorf("exit %d, stderr %q; want %d and %s (publish: %q)", code, errOut, exitFailure, refused, pubErr)
 				}
 				// publish refuses the feed in check's words
-				if _, words, ok := strings.Cut(strings.TrimSpace(errOut), `feed "meadow" is `); !ok || !strings.Contains(pubErr, "feed meadow: "+words) {
+				if _, words, ok := strings.Cut(strings.TrimSpace(errOut), `feed "meadow" is `); !ok || !strings.Contains(pubErr, "publish: feed meadow: "+words) {
 					t.Errorf("publish says %q, check %q: want check's words after the feed's name", pubErr, errOut)
 				}
 				code, out, errOut := runCLI(t, "check", "--config", cfg, "--format", "json")
@@ -303,7 +303,7 @@ func TestTrimBeforeTodayRefused(t *testing.T) {
 
 	pub := filepath.Join(t.TempDir(), "public")
 	days = todays(func() { code, _, errOut = runCLI(t, "publish", "--config", cfg, "--out", pub) })
-	if m := regexp.MustCompile(`feed meadow: .* trim would shorten it to (\d{4}-\d\d-\d\d), before today at its site \((\d{4}-\d\d-\d\d)\), leaving past days alone\); lower days_back or raise service\.max_feed_bytes`).FindStringSubmatch(errOut); code != exitFailure || m == nil || !slices.Contains(days, m[2]) || m[1] >= m[2] {
+	if m := regexp.MustCompile(`publish: feed meadow: \d+(?:\.\d+)? kB, over service\.max_feed_bytes \(12 kB\): publish and serve refuse it \(service\.oversize: trim would shorten it to (\d{4}-\d\d-\d\d), before today at its site \((\d{4}-\d\d-\d\d)\), leaving past days alone\); lower days_back or raise service\.max_feed_bytes`).FindStringSubmatch(errOut); code != exitFailure || m == nil || !slices.Contains(days, m[2]) || m[1] >= m[2] {
 		t.Errorf("publish: exit %d, stderr %q", code, errOut)
 	}
 	if files, _ := filepath.Glob(filepath.Join(pub, "*")); len(files) != 0 {

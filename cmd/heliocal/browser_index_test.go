@@ -238,9 +238,9 @@ func TestBrowserPublishedIndexReadable(t *testing.T) {
 // phoneChart reads the year chart shown for the first site: whether it is
 // the phone's, its box and its plot's height in CSS pixels, the size its
 // labels are drawn at (the font's size times the chart's scale), the hour
-// labels and the threshold labels shown, and the months labelled in it:
-// those with 27 days or more in the chart and those with fewer (short), and
-// of each those shown.
+// labels, the threshold labels and those of red lines and today shown, and
+// the months labelled in it: those with 27 days or more in the chart and
+// those with fewer (short), and of each those shown.
 const phoneChart = `(() => {
   const svg = [...document.querySelector("figure").querySelectorAll(":scope > svg")].find(s => getComputedStyle(s).display !== "none");
   const shown = (sel) => [...svg.querySelectorAll(sel)].filter(t => getComputedStyle(t).display !== "none");
@@ -249,7 +249,7 @@ const phoneChart = `(() => {
     phone: svg.classList.contains("ph"), width: box.width, height: box.height,
     plot: svg.querySelector("rect.plot").getBoundingClientRect().height,
     px: parseFloat(getComputedStyle(yl[0]).fontSize) * svg.getScreenCTM().a,
-    hours: yl.map(t => t.textContent), thresholds: shown("text.tl").length,
+    hours: yl.map(t => t.textContent), thresholds: shown("text.tl").length, marks: shown("text.ml, text.tdl").length,
     months: svg.querySelectorAll("text.mo:not(.short)").length, monthsShown: shown("text.mo:not(.short)").length,
     short: svg.querySelectorAll("text.mo.short").length, shortShown: shown("text.mo.short").length,
   };
@@ -257,15 +257,15 @@ const phoneChart = `(() => {
 
 // The index's year chart as the README and docs/feeds.md describe it, at
 // Fen Glasshouses (52.2° N, a 12 h photoperiod): on a wide screen the
-// threshold crossings are labelled "12 h ↑"/"12 h ↓" on the chart; under
-// 40rem (640 px) only the caption names them, and a month with fewer than
-// 27 of its days in the chart is left unlabelled; on a phone (under 28rem) the
-// page shows a chart of its own, taller than wide, whose plot is about 345
-// px tall on a 390 px phone (the wide chart, scaled to the width, had 117),
-// its labels drawn about 12.4 px tall there and 10.9 px on a 320 px phone,
-// outside the plot, the hours as "00", "06" … "24", every month with room
-// for a label labelled on the 390 px phone and every second one on the
-// 320 px phone.
+// threshold crossings are labelled "12 h ↑"/"12 h ↓" on the chart, as are
+// the red lines and today; under 40rem (640 px) only the caption names
+// them, and a month with fewer than 27 of its days in the chart is left
+// unlabelled; on a phone (under 28rem) the page shows a chart of its own,
+// taller than wide, whose plot is about 345 px tall on a 390 px phone (the
+// wide chart, scaled to the width, had 117), its labels drawn about 12.4 px
+// tall there and 10.9 px on a 320 px phone, outside the plot, the hours as
+// "00", "06" … "24", every month with room for a label labelled on the
+// 390 px phone and every second one on the 320 px phone.
 func TestBrowserPublishedIndexPhoneChart(t *testing.T) {
 	ctx := browser(t)
 	page := publishChartSites(t)
@@ -277,6 +277,7 @@ func TestBrowserPublishedIndexPhoneChart(t *testing.T) {
 		Width, Height, Plot, Px float64
 		Hours                   []string
 		Thresholds              int
+		Marks                   int
 		Months                  int
 		MonthsShown             int `json:"monthsShown"`
 		Short                   int
@@ -285,7 +286,7 @@ func TestBrowserPublishedIndexPhoneChart(t *testing.T) {
 	for _, w := range []struct {
 		width      int64
 		phone      bool
-		thresholds bool    // the threshold labels drawn on the chart
+		labelled   bool    // the labels of thresholds, red lines and today drawn on the chart
 		plot, px   float64 // on a phone: the plot's height and the labels' size, in CSS pixels
 		everyOther bool    // on a phone: every second month labelled
 	}{
@@ -304,8 +305,11 @@ func TestBrowserPublishedIndexPhoneChart(t *testing.T) {
 			t.Errorf("%d px: the phone's chart shown %v, want %v", w.width, c.Phone, w.phone)
 			continue
 		}
-		if (c.Thresholds > 0) != w.thresholds {
-			t.Errorf("%d px: %d threshold labels on the chart, want them shown %v", w.width, c.Thresholds, w.thresholds)
+		if (c.Thresholds > 0) != w.labelled {
+			t.Errorf("%d px: %d threshold labels on the chart, want them shown %v", w.width, c.Thresholds, w.labelled)
+		}
+		if (c.Marks > 0) != w.labelled {
+			t.Errorf("%d px: %d labels of red lines and today on the chart, want them shown %v", w.width, c.Marks, w.labelled)
 		}
 		// The chart starts four weeks before today: on the first half of
 		// a month's days the month before it has fewer than 27 in it.

@@ -690,6 +690,15 @@ func TestLoadErrors(t *testing.T) {
 			t.Errorf("%q: %v", end, err)
 		}
 	}
+	// a --- that begins the file (on its first line, or after comments) is
+	// the one document's start marker, not a second document (README,
+	// Configuration)
+	for _, start := range []string{"---\n", "--- # farm\n", "# farm\n\n---\n"} {
+		in := start + "sites:\n  - {id: x, latitude: 1, longitude: 2, timezone: UTC}\nfeeds:\n  - {id: f, site: x, kinds: [sunrise]}\n"
+		if c, err := Parse(strings.NewReader(in), "yaml"); err != nil || len(c.Feeds) != 1 {
+			t.Errorf("%q: %v", start, err)
+		}
+	}
 	// A tab in YAML's indentation is named with its own line: the decoder
 	// says "line 2" of the tab on line 3 below, and of the one on line 2 only
 	// that a character cannot start a token.

@@ -272,8 +272,12 @@ func parseDateRule(f []string) (DateRule, *RuleError) {
 				return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is not a date of the year written MM-DD", f[1]),
 					Hint: fmt.Sprintf(`write it "every %02d-%02d"`, m, d)}
 			}
+			hint := `e.g. "every 04-25"; "every 02-29" is in leap years only`
+			if d >= 1 && d <= 12 && m >= 1 && m <= daysIn(time.Month(d), 2028) { // the day first: "29-02"
+				hint = fmt.Sprintf(`the month comes first: write it "every %02d-%02d"`, d, m)
+			}
 			return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is not a date of the year: MM-DD is a month 01..12, then a day that month has", f[1]),
-				Hint: `e.g. "every 04-25"; "every 02-29" is in leap years only`}
+				Hint: hint}
 		}
 		return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is not a weekday, \"day\" or a date MM-DD", f[1]), Hint: `e.g. "every friday" or "every 04-25"`}
 	case len(f) == 1 && (isDateLike(f[0]) || isDateTime(f[0])):

@@ -60,6 +60,9 @@ func TestDateRuleWrittenOneWay(t *testing.T) {
 		{"every 06-1", `"06-1" is not a date of the year written MM-DD`, `write it "every 06-01"`},
 		{"every 2-29", `"2-29" is not a date of the year written MM-DD`, `write it "every 02-29"`},
 		{"every 2-30", `"2-30" is not a date of the year: MM-DD is a month 01..12, then a day that month has`, `e.g. "every 04-25"; "every 02-29" is in leap years only`},
+		{"every 29-02", `"29-02" is not a date of the year: MM-DD is a month 01..12, then a day that month has`, `the month comes first: write it "every 02-29"`}, // written DD-MM
+		{"every 25-4", `"25-4" is not a date of the year: MM-DD is a month 01..12, then a day that month has`, `the month comes first: write it "every 04-25"`},
+		{"every 31-04", `"31-04" is not a date of the year: MM-DD is a month 01..12, then a day that month has`, `e.g. "every 04-25"; "every 02-29" is in leap years only`}, // 30 April is the last
 		{"every 2027-06-12", `"2027-06-12" is one date, not a date of every year`, `for that date alone, write it without "every"; for every year, "every MM-DD"`},
 		{"2027-6-12", "not a date", "write it 2027-06-12"},
 		{"2027/06/12", "not a date", "write it 2027-06-12"},

@@ -1137,7 +1137,7 @@ func goBack(start, end time.Time, loc *time.Location) (words string, across bool
 	_, after := change.In(loc).Zone()
 	by := time.Duration(off-after) * time.Second
 	across = !end.IsZero() && !change.After(end)
-	if by <= 0 || !across && change.Sub(start) >= by {
+	if by <= 0 || !across && change.Sub(start) > by { // the repeated hour's first reading is shown twice too
 		return "", false
 	}
 	how := "back"

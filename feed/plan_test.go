@@ -971,6 +971,12 @@ func TestPlanClockRepeatedSaysSo(t *testing.T) {
 	if want := "From 01:30:00 EDT (on Sun 7 Nov 2027 at 02:00 EDT the clocks go back from summer time by 1 h)."; !strings.HasPrefix(es[1].Description, want) {
 		t.Errorf("7 November: %q, want %q", es[1].Description, want)
 	}
+	// 01:00, the repeated hour's first reading, is shown twice too: at 05:00
+	// UT (EDT) and at 06:00 UT (EST)
+	es = planEntries(t, ny, "2027-11-07", "2027-11-07", config.Plan{Title: "Check", Date: "every day", Start: "01:00"})
+	if want := "From 01:00:00 EDT (on Sun 7 Nov 2027 at 02:00 EDT the clocks go back from summer time by 1 h)."; len(es) != 1 || !strings.HasPrefix(es[0].Description, want) {
+		t.Errorf("7 November at 01:00: %v, want %q", es, want)
+	}
 	// America/Santiago, whose abbreviations the tz database writes as
 	// offsets ("-03", "-04"): the clocks go back from 00:00 UT − 3 h to 23:00
 	// UT − 4 h at 03:00 UT on Sunday 4 April 2027 (Rule Chile 2023 max - Apr

@@ -220,7 +220,7 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-refresh-zone.yaml", "service.refresh_zone", "Europe/Viena", "unknown time zone", `"Europe/Vienna"`, 0},
 		{"bad-base-url.yaml", "service.base_url", "sky.example.org/calendars", "must be an absolute http or https URL", "", 0},
 		{"bad-base-url-scheme.yaml", "service.base_url", "ftp://sky.example.org/calendars", "must be an absolute http or https URL", "", 0},
-		{"bad-listen.yaml", "service.listen", "8080", "must be host:port", "", 0},
+		{"bad-listen.yaml", "service.listen", "8080", "must be host:port", `a port alone comes after a colon: write it ":8080"`, 0},
 		{"bad-listen-number.yaml", "service.listen", "8080", "must be text, not a number", `write it ":8080"`, 0},
 		// TCP ports are 16 bits, 0..65535 (RFC 9293, section 3.1): "70000" in quotes is no port either
 		{"bad-listen-port-range.yaml", "service.listen", "70000", "must be text, not a number", `a port is 0..65535`, 0},

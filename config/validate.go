@@ -302,6 +302,9 @@ func listenProblem(addr string) (msg, hint string) {
 	n, perr := strconv.Atoi(port)
 	switch {
 	case err != nil:
+		if n, err := strconv.Atoi(addr); err == nil && n >= 0 && n <= 65535 && addr[0] != '+' {
+			return "must be host:port", fmt.Sprintf(`a port alone comes after a colon: write it ":%d"`, n) // every address
+		}
 		return "must be host:port", `e.g. ":8080" or "127.0.0.1:8080"`
 	case perr != nil || n < 0 || n > 65535:
 		return "port must be a number within 0..65535", `e.g. ":8080"`

@@ -244,6 +244,31 @@ func ParseDateRule(s string) (DateRule, error) {
 	return r, nil
 }
 
+// namedMonthDay reads a date of the year written with the month's name,
+// either way round ("feb 29", "25 april", "29th february"): its month and
+// day when the day is one that month has (29 February in leap years).
+func namedMonthDay(f []string) (m time.Month, d int, ok bool) {
+	if len(f) != 2 {
+		return 0, 0, false
+	}
+	day := func(s string) (int, bool) {
+		for _, suffix := range []string{"st", "nd", "rd", "th"} {
+			s = strings.TrimSuffix(s, suffix)
+		}
+		n, err := strconv.Atoi(s)
+		return n, err == nil
+	}
+	if m, ok = ParseMonth(f[0]); ok {
+		d, ok = day(f[1])
+	} else if m, ok = ParseMonth(f[1]); ok {
+		d, ok = day(f[0])
+	}
+	if !ok || d < 1 || d > daysIn(m, 2028) { // a leap year: 29 February is a date of the year
+		return 0, 0, false
+	}
+	return m, d, true
+}
+
 func parseDateRule(f []string) (DateRule, *RuleError) {
 	switch {
 	case len(f) == 0:
@@ -305,8 +330,12 @@ func parseDateRule(f []string) (DateRule, *RuleError) {
 		return DateRule{Type: RuleEvent, Event: k}, nil
 	case len(f) > 2 && f[0] == "every":
 		// "every blue moon", "every other friday"
+		hint := `e.g. "every friday" or "every 04-25"; an event's dates alone: "full-moon"`
+		if m, d, ok := namedMonthDay(f[1:]); ok { // "every feb 29", "every 25 april"
+			hint = fmt.Sprintf(`write the date MM-DD: "every %02d-%02d"`, m, d)
+		}
 		return DateRule{}, &RuleError{Msg: fmt.Sprintf("\"every\" takes one word, a weekday, \"day\" or a date MM-DD, not %q", strings.Join(f[1:], " ")),
-			Hint: `e.g. "every friday" or "every 04-25"; an event's dates alone: "full-moon"`}
+			Hint: hint}
 	case len(f) == 3:
 		d, ok := ParseWeekday(f[0])
 		if !ok {

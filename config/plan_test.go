@@ -63,6 +63,9 @@ func TestDateRuleWrittenOneWay(t *testing.T) {
 		{"every 29-02", `"29-02" is not a date of the year: MM-DD is a month 01..12, then a day that month has`, `the month comes first: write it "every 02-29"`}, // written DD-MM
 		{"every 25-4", `"25-4" is not a date of the year: MM-DD is a month 01..12, then a day that month has`, `the month comes first: write it "every 04-25"`},
 		{"every 31-04", `"31-04" is not a date of the year: MM-DD is a month 01..12, then a day that month has`, `e.g. "every 04-25"; "every 02-29" is in leap years only`}, // 30 April is the last
+		{"every feb 29", `"every" takes one word, a weekday, "day" or a date MM-DD, not "feb 29"`, `write the date MM-DD: "every 02-29"`},
+		{"every 25 April", `"every" takes one word, a weekday, "day" or a date MM-DD, not "25 april"`, `write the date MM-DD: "every 04-25"`},
+		{"every 30 feb", `"every" takes one word, a weekday, "day" or a date MM-DD, not "30 feb"`, `e.g. "every friday" or "every 04-25"; an event's dates alone: "full-moon"`}, // no such date
 		{"every 2027-06-12", `"2027-06-12" is one date, not a date of every year`, `for that date alone, write it without "every"; for every year, "every MM-DD"`},
 		{"2027-6-12", "not a date", "write it 2027-06-12"},
 		{"2027/06/12", "not a date", "write it 2027-06-12"},

@@ -169,7 +169,7 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-skyline-file-point.yaml", "sites[0].horizon", "bad-skyline-point.csv", "line 5: [120, 60]: altitude must be within -5..45 degrees", "azimuth comes first", 0},
 		{"sun-hidden-no-skyline.yaml", "feeds[0].kinds[1]", "sun-hidden", `site "valley" has no skyline`, "horizon: [[0, 2]", 0},
 		{"bad-pressure.yaml", "sites[0].pressure_hpa", "29.9", "must be within 300..1100 hPa", "not reduced to sea level", 0},
-		{"bad-temperature.yaml", "sites[0].temperature_c", "95", "must be within -90..60 °C", "not Fahrenheit", 0},
+		{"bad-temperature.yaml", "sites[0].temperature_c", "95", "must be within -90..60 °C", "not Fahrenheit: write 35 for 95 °F", 0},                // (95 − 32) × 5/9 = 35
 		{"bad-temperature-fahrenheit.yaml", "sites[0].temperature_c", `"68F"`, "must be a number, not text", "not Fahrenheit: write 20 for 68 °F", 0}, // (68 − 32) × 5/9 = 20
 		{"bad-pressure-text.yaml", "sites[0].pressure_hpa", `"1013 hPa"`, "must be a number", "without the unit: 1013", 0},
 		{"bad-elevation-unit.yaml", "sites[0].elevation", `"420 m"`, "must be a number, not text", "without the unit: 420", 0},

@@ -497,7 +497,11 @@ func (s *Site) validate(ps *problems, p string) {
 		ps.add(p+".pressure_hpa", ftoa(*s.Pressure), fmt.Sprintf("must be within %g..%g hPa", MinPressure, MaxPressure), "the air pressure at the site (not reduced to sea level), e.g. 1013; leave it out for standard refraction")
 	}
 	if s.Temperature != nil && !(*s.Temperature >= MinTemperature && *s.Temperature <= MaxTemperature) {
-		ps.add(p+".temperature_c", ftoa(*s.Temperature), fmt.Sprintf("must be within %g..%g °C", MinTemperature, MaxTemperature), "degrees Celsius, not Fahrenheit")
+		hint := "degrees Celsius, not Fahrenheit"
+		if f := *s.Temperature; f > MaxTemperature && f <= 140 { // as °F: up to 60 °C
+			hint += fmt.Sprintf(": write %g for %s °F", math.Round((f-32)*5/9*10)/10, ftoa(f))
+		}
+		ps.add(p+".temperature_c", ftoa(*s.Temperature), fmt.Sprintf("must be within %g..%g °C", MinTemperature, MaxTemperature), hint)
 	}
 	if s.TimeZone.Location == nil && s.Latitude >= -90 && s.Latitude <= 90 && s.Longitude >= -180 && s.Longitude <= 180 {
 		ps.add(p+".timezone", "", msgZoneNotSet, `an IANA time zone name such as "Europe/Vienna"`)

@@ -292,6 +292,30 @@ func CheckBaseURL(raw string) error {
 	return nil
 }
 
+// ElevationHint is the hint of an elevation out of range (a site's
+// elevation, --elev): "metres above sea level, not feet", with the metres
+// of a value that fits as feet, ": write 3658 for 12000 ft" (the
+// international foot, 0.3048 m).
+func ElevationHint(v float64) string {
+	hint := "metres above sea level, not feet"
+	if v > MaxElevation && v*0.3048 <= MaxElevation {
+		hint += fmt.Sprintf(": write %.0f for %s ft", v*0.3048, ftoa(v))
+	}
+	return hint
+}
+
+// TemperatureHint is the hint of a temperature out of range (a site's
+// temperature_c, --temperature): "degrees Celsius, not Fahrenheit", with
+// the degrees Celsius of a value over the range that fits as Fahrenheit,
+// ": write 35 for 95 °F".
+func TemperatureHint(v float64) string {
+	hint := "degrees Celsius, not Fahrenheit"
+	if v > MaxTemperature && v <= 140 { // 140 °F is 60 °C
+		hint += fmt.Sprintf(": write %g for %s °F", math.Round((v-32)*5/9*10)/10, ftoa(v))
+	}
+	return hint
+}
+
 func settingError(value, msg, hint string) error {
 	e := FieldError{Value: value, Msg: msg, Hint: hint}.Error()
 	return errors.New(strings.TrimPrefix(e, ": "))
@@ -488,7 +512,7 @@ func (s *Site) validate(ps *problems, p string) {
 		ps.add(p+".longitude", ftoa(s.Longitude), "must be within -180..180", "degrees, east positive, west negative, e.g. -3.2")
 	}
 	if !(s.Elevation >= MinElevation && s.Elevation <= MaxElevation) {
-		ps.add(p+".elevation", ftoa(s.Elevation), fmt.Sprintf("must be within %g..%g metres", MinElevation, MaxElevation), "metres above sea level, not feet")
+		ps.add(p+".elevation", ftoa(s.Elevation), fmt.Sprintf("must be within %g..%g metres", MinElevation, MaxElevation), ElevationHint(s.Elevation))
 	}
 	if !(s.Horizon >= MinHorizon && s.Horizon <= MaxHorizon) {
 		ps.add(p+".horizon", ftoa(s.Horizon), fmt.Sprintf("must be within %g..%g degrees", MinHorizon, MaxHorizon), "the altitude of the visible skyline; 0 for a flat horizon")
@@ -497,11 +521,7 @@ func (s *Site) validate(ps *problems, p string) {
 		ps.add(p+".pressure_hpa", ftoa(*s.Pressure), fmt.Sprintf("must be within %g..%g hPa", MinPressure, MaxPressure), "the air pressure at the site (not reduced to sea level), e.g. 1013; leave it out for standard refraction")
 	}
 	if s.Temperature != nil && !(*s.Temperature >= MinTemperature && *s.Temperature <= MaxTemperature) {
-		hint := "degrees Celsius, not Fahrenheit"
-		if f := *s.Temperature; f > MaxTemperature && f <= 140 { // as °F: up to 60 °C
-			hint += fmt.Sprintf(": write %g for %s °F", math.Round((f-32)*5/9*10)/10, ftoa(f))
-		}
-		ps.add(p+".temperature_c", ftoa(*s.Temperature), fmt.Sprintf("must be within %g..%g °C", MinTemperature, MaxTemperature), hint)
+		ps.add(p+".temperature_c", ftoa(*s.Temperature), fmt.Sprintf("must be within %g..%g °C", MinTemperature, MaxTemperature), TemperatureHint(*s.Temperature))
 	}
 	if s.TimeZone.Location == nil && s.Latitude >= -90 && s.Latitude <= 90 && s.Longitude >= -180 && s.Longitude <= 180 {
 		ps.add(p+".timezone", "", msgZoneNotSet, `an IANA time zone name such as "Europe/Vienna"`)

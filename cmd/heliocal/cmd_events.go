@@ -195,11 +195,11 @@ func eventsPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 	case math.IsNaN(o.lon) || o.lon < -180 || o.lon > 180:
 		return nil, badInput("--lon: %v: must be within -180..180 degrees (east positive)", o.lon)
 	case math.IsNaN(o.elev) || o.elev < -500 || o.elev > 9000:
-		return nil, badInput("--elev: %v: must be within -500..9000 metres (metres above sea level, not feet)", o.elev)
+		return nil, badInput("--elev: %v: must be within -500..9000 metres (%s)", o.elev, config.ElevationHint(o.elev))
 	case o.pressure != nil && !(*o.pressure >= config.MinPressure && *o.pressure <= config.MaxPressure):
 		return nil, badInput("--pressure: %v: must be within %g..%g hPa (the air pressure at the place)", *o.pressure, config.MinPressure, config.MaxPressure)
 	case o.temperature != nil && !(*o.temperature >= config.MinTemperature && *o.temperature <= config.MaxTemperature):
-		return nil, badInput("--temperature: %v: must be within %g..%g °C (degrees Celsius, not Fahrenheit)", *o.temperature, config.MinTemperature, config.MaxTemperature)
+		return nil, badInput("--temperature: %v: must be within %g..%g °C (%s)", *o.temperature, config.MinTemperature, config.MaxTemperature, config.TemperatureHint(*o.temperature))
 	}
 	if o.tz == "" {
 		z, err := config.ZoneLocationAt(o.lat, o.lon)

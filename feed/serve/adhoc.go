@@ -248,7 +248,7 @@ func (q *AdhocQuery) parsePlace(get getter) error {
 		}
 		if e < minElevation || e > maxElevation {
 			return &QueryError{Param: ParamElevation, Value: v,
-				Msg: fmt.Sprintf("must be within %g..%g metres", minElevation, maxElevation)}
+				Msg: fmt.Sprintf("must be within %g..%g metres (%s)", minElevation, maxElevation, config.ElevationHint(e))}
 		}
 		q.Elevation = math.Round(e) + 0 // + 0 turns −0 into 0
 	}

@@ -698,3 +698,38 @@ func TestRiseSetMeaningFollowsSite(t *testing.T) {
 		}
 	}
 }
+
+// A photoperiod date on which the Sun stops setting or rising says so, not
+// "up for 24 h …, sunrise to sunset" or "up for 0 min". Tromsø, 69.65° N
+// 18.96° E: the midnight Sun from about 20 May and the polar night from
+// about 27 November (common knowledge of the place, from memory); heliocal
+// has the first dates without a sunset and without a sunrise on 19 May and
+// 28 November 2027.
+func TestPhotoperiodSaysSunDoesNotSetOrRise(t *testing.T) {
+	s := site(t, "tromso", 69.65, 18.96, "Europe/Oslo")
+	sk := sky(t, "2027-01-01", "2027-12-31")
+	cal, err := sk.Calendar(context.Background(), s, &config.Feed{ID: "f", Kinds: []config.KindSpec{
+		{Kind: mustKinds(t, "photoperiod:23h30m")[0]}, {Kind: mustKinds(t, "photoperiod:20m")[0]}}},
+		date("2027-01-01"), date("2027-12-31"), Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := map[string]string{
+		"2027-05-19": "Day length rising past 23 h 30 min today: the Sun does not set (+1 h 01 min from the day before).",
+		"2027-11-28": "Day length falling below 20 min today: the Sun does not rise (−37 min 26 s from the day before).",
+	}
+	for _, e := range cal.Entries {
+		day := e.Start.Format(time.DateOnly)
+		if w, ok := want[day]; ok {
+			if e.Description != w {
+				t.Errorf("%s: %q, want %q", day, e.Description, w)
+			}
+			delete(want, day)
+		} else if strings.Contains(e.Description, "does not") {
+			t.Errorf("%s: %q: the Sun rises and sets that day", day, e.Description)
+		}
+	}
+	for day := range want {
+		t.Errorf("no photoperiod entry on %s", day)
+	}
+}

@@ -1001,9 +1001,9 @@ func describe(s *siteInfo, e Event) (string, string) {
 			ToSecond(e.Start).UTC().Format("2006-01-02 15:04:05"), e.Distance, FormatCount(int(math.Round(e.Distance*149597870.7))))
 		b.WriteString(FutureNote(e.Start))
 	case "photoperiod":
-		what, how := "Day length", "the Sun is up for %s (%s from the day before), sunrise to sunset"
+		what := "Day length"
 		if e.DirectSun {
-			what, how = "Direct Sun", "the Sun is over the site's skyline for %s (%s from the day before)"
+			what = "Direct Sun"
 		}
 		if e.Direction == astro.Rising {
 			title = fmt.Sprintf("%s rising past %s", what, amount(e.Kind.DayLength))
@@ -1016,7 +1016,17 @@ func describe(s *siteInfo, e Event) (string, string) {
 			// below 12 h: up for 12 h"): to the second instead
 			length = Length(e.DayLength, time.Second)
 		}
-		fmt.Fprintf(&b, "%s today: "+how+".", title, length, Change(e.DayChange))
+		change := Change(e.DayChange)
+		switch {
+		case e.DirectSun:
+			fmt.Fprintf(&b, "%s today: the Sun is over the site's skyline for %s (%s from the day before).", title, length, change)
+		case e.DayLength >= 24*time.Hour: // the first date of the midnight Sun
+			fmt.Fprintf(&b, "%s today: the Sun does not set (%s from the day before).", title, change)
+		case e.DayLength <= 0: // the first date of the polar night
+			fmt.Fprintf(&b, "%s today: the Sun does not rise (%s from the day before).", title, change)
+		default:
+			fmt.Fprintf(&b, "%s today: the Sun is up for %s (%s from the day before), sunrise to sunset.", title, length, change)
+		}
 	case "solar-eclipse", "lunar-eclipse":
 		return describeEclipse(s, e)
 	default:

@@ -2,6 +2,8 @@ package main
 
 import (
 	"fmt"
+	"slices"
+	"strings"
 	"time"
 
 	"heliocal/config"
@@ -96,4 +98,41 @@ func nextLeapDay(d time.Time) time.Time {
 			return l
 		}
 	}
+}
+
+// eventPlanWarnings warns of a plan whose date is set by an event of the
+// sky ("photoperiod:20h", "full-moon") that no date of the window has: the
+// feed holds nothing for it, as a kinds entry's threshold never crossed is
+// warned of (Calendar.NotCrossed). Plans on listed, weekly or yearly dates
+// have their own warnings.
+func eventPlanWarnings(f *config.Feed, cal *feed.Calendar) []string {
+	var out []string
+	for _, p := range f.Plans {
+		r, err := config.ParseDateRule(p.Date)
+		if err != nil || r.Type != config.RuleEvent {
+			continue
+		}
+		if slices.ContainsFunc(cal.Entries, func(e feed.Entry) bool { return e.Kind == feed.KindPlan && e.Title == p.Title }) {
+			continue
+		}
+		out = append(out, fmt.Sprintf("feed %q: plan %q: no date of the window %s..%s has its date (%s)%s: the feed holds no entry for it",
+			f.ID, p.Title, cal.FirstDate().Format(time.DateOnly), cal.LastDate.Format(time.DateOnly), p.Date, filterWords(p)))
+	}
+	return out
+}
+
+// filterWords names a plan's months and weekdays, which may be what leaves
+// its dates out: " within its months jun, jul"; "" when it has neither.
+func filterWords(p config.Plan) string {
+	var parts []string
+	if len(p.Months) > 0 {
+		parts = append(parts, "months "+strings.Join(p.Months, ", "))
+	}
+	if len(p.Weekdays) > 0 {
+		parts = append(parts, "weekdays "+strings.Join(p.Weekdays, ", "))
+	}
+	if len(parts) == 0 {
+		return ""
+	}
+	return " within its " + strings.Join(parts, " and ")
 }

@@ -5,6 +5,8 @@ import (
 	"strings"
 	"testing"
 	"time"
+
+	"heliocal/config"
 )
 
 // allDayFeed is a feed whose options all-day entries make do nothing: an
@@ -87,5 +89,54 @@ func TestFeedAlarmAllDayWarning(t *testing.T) {
 	}
 	if !slices.Equal(r.Warnings, want) {
 		t.Errorf("warnings:\n%s\nwant:\n%s", strings.Join(r.Warnings, "\n"), strings.Join(want, "\n"))
+	}
+}
+
+// eventPlanFeed is at 34.6° S, where the longest day is about 14 h 30 min
+// and the day length passes 12 h at each equinox (common knowledge of the
+// latitude, from memory): a plan on the date the day length passes 20 h has
+// no date, while the plans on the 12 h crossings and the full Moons have
+// theirs.
+const eventPlanFeed = `sites:
+  - {id: pampa, latitude: -34.6, longitude: -58.4, timezone: America/Argentina/Buenos_Aires}
+feeds:
+  - id: pampa-plans
+    site: pampa
+    plans:
+      - {title: Lamps off for summer, date: "photoperiod:20h", start: sunrise}
+      - {title: Equal day and night walk, date: "photoperiod:12h", start: sunset}
+      - {title: Full Moon walk, date: full-moon, start: moonrise}
+`
+
+// check warns of a plan whose date is an event of the sky that the feed's
+// window does not have; its months and weekdays are named, as they may be why.
+func TestEventPlanWarning(t *testing.T) {
+	r := checkReportOf(t, eventPlanFeed, allDayNow)
+	var got []string
+	for _, w := range r.Warnings {
+		if strings.Contains(w, "no date of the window") {
+			got = append(got, w)
+		}
+	}
+	want := []string{
+		`feed "pampa-plans": plan "Lamps off for summer": no date of the window 2026-11-05..2027-12-05 has its date (photoperiod:20h): the feed holds no entry for it`,
+	}
+	if !slices.Equal(got, want) {
+		t.Errorf("warnings:\n%s\nwant:\n%s", strings.Join(r.Warnings, "\n"), strings.Join(want, "\n"))
+	}
+}
+
+func TestEventPlanWarningNamesFilters(t *testing.T) {
+	for _, tc := range []struct {
+		p    config.Plan
+		want string
+	}{
+		{config.Plan{}, ""},
+		{config.Plan{Months: []string{"jun", "jul"}}, " within its months jun, jul"},
+		{config.Plan{Months: []string{"jun"}, Weekdays: []string{"sun"}}, " within its months jun and weekdays sun"},
+	} {
+		if got := filterWords(tc.p); got != tc.want {
+			t.Errorf("%+v: %q, want %q", tc.p, got, tc.want)
+		}
 	}
 }

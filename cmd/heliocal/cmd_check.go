@@ -35,8 +35,9 @@ end) on some dates, and so does not limit them there, gets a warning too, as doe
 date a kinds entry lists or a plan is on before the feed's window, or that the entry's own
 months or weekdays leave out: it is never published. One after the window gets a note: it
 is published once the window reaches it. A photoperiod threshold no date of the window
-crosses gets a warning whatever the dates its kinds entry keeps, as do a plan on 29 February
-(every 02-29) whose window holds none, an alarm on all-day entries (calendars set no reminder
+crosses gets a warning whatever the dates its kinds entry keeps, as do a plan whose date is
+an event of the sky (photoperiod:20h, full-moon) that no date of the window has, a plan on
+29 February (every 02-29) whose window holds none, an alarm on all-day entries (calendars set no reminder
 before them) and all_day: true on a kind whose entries are all-day already.
 
 --format json prints one JSON document on standard output for scripts: the sites and feeds
@@ -272,6 +273,7 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		r.Warnings = append(r.Warnings, datesFilteredOut(&f, shown, listed)...)
 		r.Warnings = append(r.Warnings, planDatesFilteredOut(&f)...)
 		r.Warnings = append(r.Warnings, leapDayWarnings(&f, cal)...)
+		r.Warnings = append(r.Warnings, eventPlanWarnings(&f, cal)...)
 		r.Warnings = append(r.Warnings, allDayWarnings(&f, shown)...)
 		r.Notes = append(r.Notes, later...)
 		// encoded as publish and serve encode it, under service.oversize:

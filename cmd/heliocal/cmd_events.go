@@ -194,8 +194,8 @@ func eventsPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 		return nil, badInput("--lat: %v: must be within -90..90 degrees (north positive, e.g. 47.07)", o.lat)
 	case math.IsNaN(o.lon) || o.lon < -180 || o.lon > 180:
 		return nil, badInput("--lon: %v: must be within -180..180 degrees (east positive)", o.lon)
-	case math.IsNaN(o.elev) || o.elev < -500 || o.elev > 9000:
-		return nil, badInput("--elev: %v: must be within -500..9000 metres (%s)", o.elev, config.ElevationHint(o.elev))
+	case !(o.elev >= config.MinElevation && o.elev <= config.MaxElevation):
+		return nil, badInput("--elev: %v: must be within %g..%g metres (%s)", o.elev, config.MinElevation, config.MaxElevation, config.ElevationHint(o.elev))
 	case o.pressure != nil && !(*o.pressure >= config.MinPressure && *o.pressure <= config.MaxPressure):
 		return nil, badInput("--pressure: %v: must be within %g..%g hPa (the air pressure at the place)", *o.pressure, config.MinPressure, config.MaxPressure)
 	case o.temperature != nil && !(*o.temperature >= config.MinTemperature && *o.temperature <= config.MaxTemperature):

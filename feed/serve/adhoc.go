@@ -42,8 +42,6 @@ var adhocParams = []string{ParamLatitude, ParamLongitude, ParamZone, ParamKinds,
 
 // Bounds of the ad-hoc parameters.
 const (
-	minElevation   = -500.0 // m; the lowest dry land is about −430 m (Dead Sea shore)
-	maxElevation   = 9000.0 // m; the highest summit is about 8850 m
 	maxKinds       = 32
 	maxZoneLen     = 64
 	coordDecimals  = 1e4 // latitude and longitude are rounded to 0.0001° (about 11 m)
@@ -246,9 +244,9 @@ func (q *AdhocQuery) parsePlace(get getter) error {
 		if err != nil {
 			return err
 		}
-		if e < minElevation || e > maxElevation {
+		if e < config.MinElevation || e > config.MaxElevation {
 			return &QueryError{Param: ParamElevation, Value: v,
-				Msg: fmt.Sprintf("must be within %g..%g metres (%s)", minElevation, maxElevation, config.ElevationHint(e))}
+				Msg: fmt.Sprintf("must be within %g..%g metres (%s)", config.MinElevation, config.MaxElevation, config.ElevationHint(e))}
 		}
 		q.Elevation = math.Round(e) + 0 // + 0 turns −0 into 0
 	}

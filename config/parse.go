@@ -1433,8 +1433,7 @@ func numberTextHint(key, x string) string {
 	case err != nil:
 		return numberWords[key] // "high" for high
 	case key == "temperature_c" && (unit == "f" || unit == "°f"):
-		c := math.Round((f-32)*5/9*10)/10 + 0 // + 0: "0", not "-0", for 31.99 °F
-		return fmt.Sprintf("degrees Celsius, not Fahrenheit: write %g for %s °F", c, num)
+		return fahrenheitHint(f, num)
 	case key == "max_illumination" && unit == "%":
 		return "write a fraction of 1: " + strconv.FormatFloat(f/100, 'g', -1, 64) + " for " + num + " %"
 	}

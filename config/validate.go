@@ -309,11 +309,17 @@ func ElevationHint(v float64) string {
 // the degrees Celsius of a value over the range that fits as Fahrenheit,
 // ": write 35 for 95 °F".
 func TemperatureHint(v float64) string {
-	hint := "degrees Celsius, not Fahrenheit"
 	if v > MaxTemperature && v <= 140 { // 140 °F is 60 °C
-		hint += fmt.Sprintf(": write %g for %s °F", math.Round((v-32)*5/9*10)/10, ftoa(v))
+		return fahrenheitHint(v, ftoa(v))
 	}
-	return hint
+	return "degrees Celsius, not Fahrenheit"
+}
+
+// fahrenheitHint is the hint of f °F, as written, where degrees Celsius
+// belong: "degrees Celsius, not Fahrenheit: write 35 for 95 °F", to 0.1 °C.
+func fahrenheitHint(f float64, written string) string {
+	c := math.Round((f-32)*5/9*10)/10 + 0 // + 0: "0", not "-0", for 31.99 °F
+	return fmt.Sprintf("degrees Celsius, not Fahrenheit: write %g for %s °F", c, written)
 }
 
 func settingError(value, msg, hint string) error {

@@ -1501,13 +1501,10 @@ func nameHint(key string, v any) string {
 		return "write the day's name: mon, tue, wed, thu, fri, sat or sun"
 	}
 	if clock {
-		switch {
-		case n >= 0 && n < 24: // an hour alone: 23 is 23:00, not 00:23
+		if n >= 0 && n < 24 { // an hour alone: 23 is 23:00, not 00:23
 			return fmt.Sprintf(`write it "%02d:00"`, n)
-		case n >= 100 && n < 2400 && n%100 < 60: // 2300, 930
-			return fmt.Sprintf(`write it "%02d:%02d"`, n/100, n%100)
 		}
-		return `write a local time "HH:MM" in quotes, e.g. "22:00"`
+		return clockDigitsHint(strconv.FormatInt(n, 10), `write a local time "HH:MM" in quotes, e.g. "22:00"`) // 2300, 930
 	}
 	return ""
 }

@@ -513,12 +513,12 @@ type TimeSpec struct {
 }
 
 // clockDigitsHint says how to write a clock time written as its digits
-// alone, "0530" or "930": `write it "05:30"`; "" for other text.
-func clockDigitsHint(s string) string {
+// alone, "0530" or "930": `write it "05:30"`; hint for other text.
+func clockDigitsHint(s, hint string) string {
 	s = strings.TrimSpace(s)
 	n, err := strconv.Atoi(s)
 	if err != nil || len(s) < 3 || len(s) > 4 || s[0] == '+' || s[0] == '-' || n/100 > 23 || n%100 > 59 {
-		return ""
+		return hint
 	}
 	return fmt.Sprintf(`write it "%02d:%02d"`, n/100, n%100)
 }
@@ -545,11 +545,7 @@ func parseTimeSpec(t string, suggest bool) (TimeSpec, *RuleError) {
 	if t[0] >= '0' && t[0] <= '9' {
 		c, err := ParseClock(t)
 		if err != nil {
-			hint := `write HH:MM (00:00..23:59), e.g. "20:00"`
-			if h := clockDigitsHint(t); h != "" {
-				hint = h
-			}
-			return TimeSpec{}, &RuleError{Msg: "not a clock time", Hint: hint}
+			return TimeSpec{}, &RuleError{Msg: "not a clock time", Hint: clockDigitsHint(t, `write HH:MM (00:00..23:59), e.g. "20:00"`)}
 		}
 		return TimeSpec{IsClock: true, Clock: c}, nil
 	}
@@ -784,11 +780,7 @@ func (ks *KindSpec) validateOptions(ps *problems, p string) {
 	for _, c := range []struct{ key, v string }{{"latest_off", ks.LatestOff}, {"earliest_on", ks.EarliestOn}} {
 		if onlyLighting(c.key, c.v) {
 			if _, err := ParseClock(c.v); err != nil {
-				hint := `write local time as HH:MM, e.g. "22:00"`
-				if h := clockDigitsHint(c.v); h != "" {
-					hint = h
-				}
-				ps.add(p+"."+c.key, c.v, "not a clock time", hint)
+				ps.add(p+"."+c.key, c.v, "not a clock time", clockDigitsHint(c.v, `write local time as HH:MM, e.g. "22:00"`))
 			}
 		}
 	}

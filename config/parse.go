@@ -1493,10 +1493,7 @@ func nameHint(key string, v any) string {
 		}
 		return `a port is 0..65535: write it in quotes after a colon, e.g. ":8080"` // not "70000" in quotes
 	case "months":
-		if n >= 1 && n <= 12 {
-			return fmt.Sprintf("write the month's name: %q", monthNames[n-1])
-		}
-		return "write the month's name: jan, feb, mar, apr, may, jun, jul, aug, sep, oct, nov or dec"
+		return monthNumberHint(n, "write the month's name: jan, feb, mar, apr, may, jun, jul, aug, sep, oct, nov or dec")
 	case "weekdays":
 		return "write the day's name: mon, tue, wed, thu, fri, sat or sun"
 	}

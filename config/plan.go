@@ -708,8 +708,8 @@ func checkFilter(ps *problems, p string, weekdays, months, dates []string) {
 			hint := l.all
 			if near := nearName(strings.ToLower(strings.TrimSpace(v)), l.names, l.full); near != "" {
 				hint = fmt.Sprintf("did you mean %q?", near)
-			} else if m, err := strconv.Atoi(strings.TrimSpace(v)); err == nil && l.key == "months" && m >= 1 && m <= 12 {
-				hint = fmt.Sprintf("write the month's name: %q", monthNames[m-1]) // "8" for August
+			} else if m, err := strconv.Atoi(strings.TrimSpace(v)); err == nil && l.key == "months" {
+				hint = monthNumberHint(int64(m), hint) // "8" for August
 			}
 			ps.add(fmt.Sprintf("%s.%s[%d]", p, l.key, i), v, l.what, hint)
 		}
@@ -729,6 +729,16 @@ func checkFilter(ps *problems, p string, weekdays, months, dates []string) {
 		}
 		seen[dayNumber(d)] = i
 	}
+}
+
+// monthNumberHint says how to write month n, a number where a month's name
+// belongs: `write the month's name: "aug"` for 8; hint for a number that is
+// no month.
+func monthNumberHint(n int64, hint string) string {
+	if n < 1 || n > 12 {
+		return hint
+	}
+	return fmt.Sprintf("write the month's name: %q", monthNames[n-1])
 }
 
 // nearName is the day or month name a misspelt one v (lower case) most

@@ -227,6 +227,7 @@ type thresholdView struct {
 	X, TX, TY string
 	Label     string // e.g. "12 h ↑"
 	Text      string // in words, for the tooltip and the caption
+	day       int    // the index of the crossing's date in the chart's days
 }
 
 type phaseView struct {
@@ -336,12 +337,13 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 	first, last := days[0].Date, days[len(days)-1].Date
 	today := todayIndex(c.Today, days)
 	v := &chartView{
-		ID:      "chart-" + id,
-		Title:   chartTitle(siteName, first, last, len(c.Lamps) > 0, len(c.Dark) > 0),
-		Held:    heldText(c.Held, first, last),
-		drawing: desk.draw("chart-"+id, "desk", c, today),
-		Phone:   phone.draw("chart-"+id, "ph", c, today),
+		ID:    "chart-" + id,
+		Title: chartTitle(siteName, first, last, len(c.Lamps) > 0, len(c.Dark) > 0),
+		Held:  heldText(c.Held, first, last),
 	}
+	ts := thresholds(days, c.Levels, today)
+	v.drawing = desk.draw("chart-"+id, "desk", c, today, ts)
+	v.Phone = phone.draw("chart-"+id, "ph", c, today, ts)
 	v.drawing.Title, v.Phone.Title = v.Title, v.Title
 	ahead := days // the summary speaks of the year from today
 	if today > 0 {
@@ -353,7 +355,7 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 			v.Summary += " " + w
 		}
 	}
-	for _, t := range v.Thresholds {
+	for _, t := range ts {
 		v.Summary += " " + t.Text + "."
 	}
 	if v.Today != nil {
@@ -366,8 +368,9 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 }
 
 // draw draws the chart c in the geometry g; today is the index of today's
-// date in c.Days (see todayIndex).
-func (g geometry) draw(id, class string, c *SiteChart, today int) drawing {
+// date in c.Days (see todayIndex) and ts its photoperiod crossings (see
+// thresholds).
+func (g geometry) draw(id, class string, c *SiteChart, today int, ts []thresholdView) drawing {
 	days := c.Days
 	first, last := days[0].Date, days[len(days)-1].Date
 	return drawing{
@@ -390,7 +393,7 @@ func (g geometry) draw(id, class string, c *SiteChart, today int) drawing {
 		Months:     g.monthTicks(days),
 		Hours:      g.hourTicks(),
 		Marks:      g.markViews(c.Marks, c.Location, first, last),
-		Thresholds: g.thresholdViews(days, c.Levels, today),
+		Thresholds: g.thresholdViews(ts, len(days)),
 		Phases:     g.phaseViews(c.Phases, c.Location, first, last),
 		Today:      g.todayMark(today, days),
 	}
@@ -573,13 +576,13 @@ func (g geometry) markViews(marks []Mark, loc *time.Location, first, last time.T
 	return views
 }
 
-// thresholdViews marks each date on which the day length crosses a
-// photoperiod threshold: the first day at or over it ("↑") or the first day
-// under it ("↓"). The labels alternate between two rows, left to right, so
-// that neighbours do not overlap. A crossing in the weeks before today (the
-// index of today in days, or -1) is told in the past tense.
-func (g geometry) thresholdViews(days []ChartDay, levels []Level, today int) []thresholdView {
-	step := g.dayStep(len(days))
+// thresholds are the dates on which the day length crosses a photoperiod
+// threshold: the first day at or over it ("↑") or the first day under it
+// ("↓"), in date order, with their labels and words but not yet placed (see
+// thresholdViews). A crossing in the weeks before today (the index of today
+// in days, or -1) is told in the past tense. The words are the same in
+// every geometry, so they are found once for both drawings.
+func thresholds(days []ChartDay, levels []Level, today int) []thresholdView {
 	type crossing struct {
 		i  int
 		up bool
@@ -597,9 +600,8 @@ func (g geometry) thresholdViews(days []ChartDay, levels []Level, today int) []t
 	sort.SliceStable(cs, func(a, b int) bool { return cs[a].i < cs[b].i })
 	views := make([]thresholdView, len(cs))
 	for n, c := range cs {
-		x := g.Left + float64(c.i)*step
 		label := formatHours(c.lv.Length)
-		tv := thresholdView{X: num(x), TX: num(x + 2), TY: num(g.bottom() - 4 - 12*float64(n%2))}
+		tv := thresholdView{day: c.i}
 		past := c.i < today
 		var verb string
 		switch {
@@ -617,6 +619,20 @@ func (g geometry) thresholdViews(days []ChartDay, levels []Level, today int) []t
 			tv.Text += " (" + c.lv.Label + ")"
 		}
 		views[n] = tv
+	}
+	return views
+}
+
+// thresholdViews places the crossings ts (see thresholds) on a chart of n
+// days. The labels alternate between two rows, left to right, so that
+// neighbours do not overlap.
+func (g geometry) thresholdViews(ts []thresholdView, n int) []thresholdView {
+	step := g.dayStep(n)
+	views := make([]thresholdView, len(ts))
+	for k, tv := range ts {
+		x := g.Left + float64(tv.day)*step
+		tv.X, tv.TX, tv.TY = num(x), num(x+2), num(g.bottom()-4-12*float64(k%2))
+		views[k] = tv
 	}
 	return views
 }

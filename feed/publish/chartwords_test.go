@@ -86,7 +86,7 @@ func TestThresholdBeforeTodayInPastTense(t *testing.T) {
 	for i, h := range []float64{11.8, 11.9, 12.1, 12.2, 12.3, 12.4, 12.3, 12.2, 11.9, 11.8} {
 		days = append(days, ChartDay{Date: first.AddDate(0, 0, i), Daylight: time.Duration(h * float64(time.Hour))})
 	}
-	got := desk.thresholdViews(days, []Level{{Length: 12 * time.Hour}}, 5)
+	got := thresholds(days, []Level{{Length: 12 * time.Hour}}, 5)
 	want := []string{"Day length reached 12 h on 3 Mar", "Day length drops under 12 h on 9 Mar"}
 	if len(got) != len(want) {
 		t.Fatalf("%d crossings, want %d", len(got), len(want))

@@ -64,3 +64,36 @@ func TestIndexKeepsUnits(t *testing.T) {
 		}
 	}
 }
+
+// keepUnitsRE is KeepUnits written as the regular expressions of its twin
+// in feed/serve's builder.js, which the page's preview runs.
+func keepUnitsRE(s string) string {
+	unit := regexp.MustCompile(`(\d) (h|min|s|days?|k?m)\b`)
+	hm := regexp.MustCompile("(\\d\u00a0h) (\\d+\u00a0min)")
+	return hm.ReplaceAllString(unit.ReplaceAllString(s, "$1\u00a0$2"), "$1\u00a0$2")
+}
+
+// KeepUnits joins the same spaces as builder.js's keepUnits, so that the
+// page /at and the builder's preview break their lines alike.
+func FuzzKeepUnitsAsBuilder(f *testing.F) {
+	for _, s := range []string{
+		"Daylight 6 h 17 min", "Lamps on for 6 h 44 min, to reach 16 h", "Lamp periods on 176 days, +1 day",
+		"elevation 240 m, 1.5 km away, 30 s", "12 hours, 3 minutes, 5 mice, 2026 spring", "h 12", "",
+		"9 h 05 mins", "1 h 2 h 3 min", "5 ms 6 kms 7 m_ 8 m\u00e9", "9\u00a0h 05\u00a0min", "3 h 4 minutes 5 h 6",
+		"2 days 3 dayx 4 s", "1 h 05 min 55 s", " 1", "1 ",
+	} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, s string) {
+		if got, want := KeepUnits(s), keepUnitsRE(s); got != want {
+			t.Errorf("KeepUnits(%q) = %q, builder.js's keepUnits writes %q", s, got, want)
+		}
+	})
+}
+
+func BenchmarkKeepUnits(b *testing.B) {
+	const caption = "Daylight 9 h 05 min on 5 Jun, 16 h 30 min at most; lamps on for 6 h 44 min, to reach 16 h, on 176 days."
+	for b.Loop() {
+		KeepUnits(caption)
+	}
+}

@@ -327,15 +327,29 @@ func (w *Writer) writeTemp(name string, data []byte) (_ string, err error) {
 func createTemp(dir, pattern string) (*os.File, error) {
 	prefix, suffix, _ := strings.Cut(pattern, "*")
 	prefix = filepath.Join(dir, prefix)
-	for range 10000 {
-		name := prefix + strconv.FormatUint(uint64(rand.Uint32()), 10) + suffix
-		f, err := openNew(name, FileMode)
-		if errors.Is(err, fs.ErrExist) {
-			continue
-		}
-		return f, err
+	var f *os.File
+	_, err := freshName(prefix, suffix, 10000, func(name string) (err error) {
+		f, err = openNew(name, FileMode)
+		return err
+	})
+	if errors.Is(err, fs.ErrExist) {
+		return nil, &fs.PathError{Op: "createtemp", Path: prefix + "*" + suffix, Err: fs.ErrExist}
 	}
-	return nil, &fs.PathError{Op: "createtemp", Path: prefix + "*" + suffix, Err: fs.ErrExist}
+	return f, err
+}
+
+// freshName calls create with prefix + random digits + suffix, with other
+// digits while the name is taken (create fails with fs.ErrExist), at most
+// tries times; it returns the name create made, or create's last error.
+func freshName(prefix, suffix string, tries int, create func(name string) error) (string, error) {
+	err := error(fs.ErrExist)
+	for range tries {
+		name := prefix + strconv.FormatUint(uint64(rand.Uint32()), 10) + suffix
+		if err = create(name); !errors.Is(err, fs.ErrExist) {
+			return name, err
+		}
+	}
+	return "", err
 }
 
 // install renames the temporary file tmp over name, refusing to replace
@@ -393,16 +407,9 @@ func (w *Writer) keep(name string) {
 	if _, err := os.Lstat(final); err == nil {
 		st.existed = true
 		w.tell("keep " + name)
-		for range 100 {
-			prev := filepath.Join(w.Dir, "."+name+prevInfix+strconv.FormatUint(uint64(rand.Uint32()), 10))
-			err := os.Link(final, prev)
-			if errors.Is(err, fs.ErrExist) {
-				continue
-			}
-			if err == nil {
-				st.prev = prev
-			}
-			break
+		prev, err := freshName(filepath.Join(w.Dir, "."+name+prevInfix), "", 100, func(prev string) error { return os.Link(final, prev) })
+		if err == nil {
+			st.prev = prev
 		}
 	}
 	w.undo.steps = append(w.undo.steps, st)

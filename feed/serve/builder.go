@@ -806,8 +806,8 @@ func (s *Server) serveHome(w http.ResponseWriter, r *http.Request) {
 	v := homeView{Page: p, Builder: !p.NoBuilder, Legal: p.Legal || !p.NoBuilder, Groups: kindGroups, Today: s.now().Format(time.DateOnly)}
 	snap := s.snap.Load()
 	base := s.baseFor(r)
-	if snap != nil && snap.files["index.html"] != nil {
-		v.Index = base + "index.html"
+	if snap != nil && snap.files[publish.IndexName] != nil {
+		v.Index = base + publish.IndexName
 	}
 	if snap != nil && len(p.Sites) > 0 {
 		for _, site := range p.Sites {

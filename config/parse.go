@@ -233,9 +233,9 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 // at first; the decoder reads the file again only when a marker follows
 // content.
 func secondDocument(data []byte) (line, end int) {
-	content := false
-	for i, l := range bytes.Split(data, []byte("\n")) {
-		l = bytes.TrimRight(l, "\r")
+	content, i := false, -1
+	for l := range bytes.Lines(data) { // the lines without a copy of their list: every YAML file is looked at
+		l, i = bytes.TrimRight(l, "\r\n"), i+1
 		marker := docMarker(l, "---")
 		switch {
 		case marker && content:

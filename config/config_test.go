@@ -157,7 +157,7 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-latitude-quoted.yaml", "sites[0].latitude", `"95"`, "must be a number, not text", "without quotes", 0},
 		{"bad-latitude-text.yaml", "sites[0].latitude", `"abc"`, "must be a number", "", 0},
 		{"bad-longitude.yaml", "sites[0].longitude", "-181.5", "must be within -180..180", "east positive", 0},
-		{"bad-elevation.yaml", "sites[0].elevation", "12000", "must be within -500..9000 metres", "not feet: write 3658 for 12000 ft", 0}, // 12000 × 0.3048 m = 3657.6 m
+		{"bad-elevation.yaml", "sites[0].elevation", "12000", "must be within -500..9000 metres", "not feet: write 3658 for 12000 ft", 0}, // 12000 × 0.3048 m = 3657.6 m (the international foot, 0.3048 m exactly: NIST SP 811, appendix B)
 		{"bad-horizon.yaml", "sites[0].horizon", "60", "must be within -5..45 degrees", "", 0},
 		{"band-wrong-kind.yaml", "feeds[0].kinds[0].low", "10", "applies only to golden-hour and blue-hour", "sun-band:10..30", 0},
 		{"bad-band-empty.yaml", "feeds[0].kinds[0].low", "7", "the band 7..6 is empty", "-4..6", 0},
@@ -169,8 +169,8 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-skyline-file-point.yaml", "sites[0].horizon", "bad-skyline-point.csv", "line 5: [120, 60]: altitude must be within -5..45 degrees", "azimuth comes first", 0},
 		{"sun-hidden-no-skyline.yaml", "feeds[0].kinds[1]", "sun-hidden", `site "valley" has no skyline`, "horizon: [[0, 2]", 0},
 		{"bad-pressure.yaml", "sites[0].pressure_hpa", "29.9", "must be within 300..1100 hPa", "not reduced to sea level", 0},
-		{"bad-temperature.yaml", "sites[0].temperature_c", "95", "must be within -90..60 °C", "not Fahrenheit: write 35 for 95 °F", 0},                // (95 − 32) × 5/9 = 35
-		{"bad-temperature-fahrenheit.yaml", "sites[0].temperature_c", `"68F"`, "must be a number, not text", "not Fahrenheit: write 20 for 68 °F", 0}, // (68 − 32) × 5/9 = 20
+		{"bad-temperature.yaml", "sites[0].temperature_c", "95", "must be within -90..60 °C", "not Fahrenheit: write 35 for 95 °F", 0},                // (95 − 32) × 5/9 = 35 (°C from °F: NIST SP 811, appendix B)
+		{"bad-temperature-fahrenheit.yaml", "sites[0].temperature_c", `"68F"`, "must be a number, not text", "not Fahrenheit: write 20 for 68 °F", 0}, // (68 − 32) × 5/9 = 20 (°C from °F: NIST SP 811, appendix B)
 		{"bad-pressure-text.yaml", "sites[0].pressure_hpa", `"1013 hPa"`, "must be a number", "without the unit: 1013", 0},
 		{"bad-elevation-unit.yaml", "sites[0].elevation", `"420 m"`, "must be a number, not text", "without the unit: 420", 0},
 		{"bad-latitude-dms.yaml", "sites[0].latitude", `"47°30′N"`, "must be a number, not text", "decimal degrees, south negative", 0},
@@ -824,8 +824,8 @@ func TestQuotesHintOnlyForQuotedNumbers(t *testing.T) {
 
 // A temperature written in Fahrenheit is told its value in Celsius, to a
 // tenth of a degree: °C = (°F − 32) × 5/9, the two scales' definitions
-// (68 °F = 20 °C; they meet at −40; 31.99 °F is −0.0056 °C, which is 0.0
-// to a tenth, written "0", not "-0").
+// (NIST SP 811, appendix B; 68 °F = 20 °C; they meet at −40; 31.99 °F is
+// −0.0056 °C, which is 0.0 to a tenth, written "0", not "-0").
 func TestFahrenheitHint(t *testing.T) {
 	for _, tc := range []struct{ written, want string }{
 		{"68F", "write 20 for 68 °F"},

@@ -115,7 +115,7 @@ func TestAdhocBadParameters(t *testing.T) {
 		{ok + "&start=2200-12-01&days=60", "start", `"2200-12-01"`},
 		{ok + "&elev=9001", "elev", `"9001"`},
 		{ok + "&elev=-501", "elev", `"-501"`},
-		{ok + "&elev=12000", "elev", `"12000": must be within -500..9000 metres (metres above sea level, not feet: write 3658 for 12000 ft)`}, // 12000 × 0.3048 m = 3657.6 m
+		{ok + "&elev=12000", "elev", `"12000": must be within -500..9000 metres (metres above sea level, not feet: write 3658 for 12000 ft)`}, // 12000 × 0.3048 m = 3657.6 m (the international foot, 0.3048 m exactly: NIST SP 811, appendix B)
 		{ok + "&elev=high", "elev", `"high"`},
 		// a number written with its unit or in degrees and minutes: the hint
 		// says how to write it (the value itself is checked above)

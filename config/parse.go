@@ -1422,9 +1422,9 @@ func numberTextHint(key, x string) string {
 	f, err := strconv.ParseFloat(num, 64)
 	switch {
 	case key == "latitude":
-		return "write decimal degrees, south negative, e.g. -42.88 for 42°52′48″S"
+		return "write " + LatitudeText
 	case key == "longitude":
-		return "write decimal degrees, west negative, e.g. -72.26 for 72°15′36″W"
+		return "write " + LongitudeText
 	case key == "max_feed_bytes":
 		if mul, ok := byteUnits[unit]; ok && err == nil {
 			return fmt.Sprintf("write the number of bytes: %.0f", f*mul) // 1000000 for "1MB"
@@ -1447,6 +1447,14 @@ func numberTextHint(key, x string) string {
 	}
 	return numberWords[key]
 }
+
+// LatitudeText and LongitudeText say how a latitude and a longitude are
+// written, for one given in degrees and minutes (a site's latitude and
+// longitude, --lat and --lon).
+const (
+	LatitudeText  = "decimal degrees, south negative, e.g. -42.88 for 42°52′48″S"
+	LongitudeText = "decimal degrees, west negative, e.g. -72.26 for 72°15′36″W"
+)
 
 // numberWords say what the number of a key is, for text that holds none.
 var numberWords = map[string]string{

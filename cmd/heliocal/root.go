@@ -294,8 +294,8 @@ func flagValueError(err error) error {
 // flagHints say how to write the value of a flag of a place, as the
 // configuration's hints say it for the site's keys.
 var flagHints = map[string]string{
-	"lat":              "decimal degrees, south negative, e.g. -42.88 for 42°52′48″S",
-	"lon":              "decimal degrees, west negative, e.g. -72.26 for 72°15′36″W",
+	"lat":              config.LatitudeText,
+	"lon":              config.LongitudeText,
 	"elev":             "metres above sea level, the number alone, e.g. 120",
 	"pressure":         "hPa, the number alone, e.g. 1013",
 	"temperature":      "degrees Celsius, the number alone, e.g. -5",

@@ -47,9 +47,7 @@ func TestAllDayWarnings(t *testing.T) {
 		`feed "farm-year": photoperiod:12h: all_day: true changes nothing: its entries are all-day already`,
 		`feed "farm-year": plan "Last frost": alarm 1h gives no reminder: a plan without start is all-day, and reminders are set before timed entries only`,
 	}
-	if !slices.Equal(r.Warnings, want) {
-		t.Errorf("warnings:\n%s\nwant:\n%s", strings.Join(r.Warnings, "\n"), strings.Join(want, "\n"))
-	}
+	wantWarnings(t, r.Warnings, want)
 	// a window that holds 2028-02-29 (from 2027-05-05 on) has the plan's
 	// entry: no warning of it
 	r = checkReportOf(t, allDayFeed, time.Date(2027, 5, 5, 12, 0, 0, 0, time.UTC))
@@ -87,9 +85,7 @@ func TestFeedAlarmAllDayWarning(t *testing.T) {
 	want := []string{
 		`feed "farm-days": alarm 30m gives no reminder: every entry of the feed is all-day, and reminders are set before timed entries only`,
 	}
-	if !slices.Equal(r.Warnings, want) {
-		t.Errorf("warnings:\n%s\nwant:\n%s", strings.Join(r.Warnings, "\n"), strings.Join(want, "\n"))
-	}
+	wantWarnings(t, r.Warnings, want)
 }
 
 // eventPlanFeed is at 34.6° S, where the longest day is about 14 h 30 min

@@ -44,6 +44,14 @@ func checkReportOf(t *testing.T, cfg string, now time.Time) *checkReport {
 	return r
 }
 
+// wantWarnings checks that the warnings got are want, in order.
+func wantWarnings(t *testing.T, got, want []string) {
+	t.Helper()
+	if !slices.Equal(got, want) {
+		t.Errorf("warnings:\n%s\nwant:\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
+	}
+}
+
 // wantWarningsStart checks that the lamp warnings got are as many as want
 // and that each starts with its want, up to the words all of them share.
 func wantWarningsStart(t *testing.T, got, want []string) {

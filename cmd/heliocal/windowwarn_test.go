@@ -44,9 +44,7 @@ func TestDatesOutsideWindowWarning(t *testing.T) {
 	want := []string{
 		`feed "kauri-weddings": golden-hour: 2027-01-05 is before the window's start 2027-01-06 (days_back: 10): it will never be published`,
 	}
-	if !slices.Equal(r.Warnings, want) {
-		t.Errorf("warnings:\n%s\nwant:\n%s", strings.Join(r.Warnings, "\n"), strings.Join(want, "\n"))
-	}
+	wantWarnings(t, r.Warnings, want)
 	want = []string{
 		`feed "kauri-weddings": golden-hour, sunset-15m and plan "Open day": 2027-02-06 is after the window's end 2027-02-05 (days_ahead: 20): it will be published from 2027-01-17, when the window reaches it`,
 	}
@@ -127,9 +125,7 @@ feeds:
 		`feed "weddings": sunset: 2027-06-12 is in June, not in its months (jul): it will never be published`,
 		`feed "weddings": golden-hour-10m: 2027-06-12 is a Saturday, not in its weekdays (sun): it will never be published`,
 	}
-	if !slices.Equal(r.Warnings, want) {
-		t.Errorf("warnings:\n%s\nwant:\n%s", strings.Join(r.Warnings, "\n"), strings.Join(want, "\n"))
-	}
+	wantWarnings(t, r.Warnings, want)
 }
 
 // A listed date that the entry's own weekdays leave out is only that
@@ -152,9 +148,7 @@ feeds:
 		`feed "weddings": sunset: 2026-06-13 is a Saturday, not in its weekdays (sun): it will never be published`,
 		`feed "weddings": sunset: 2028-06-17 is a Saturday, not in its weekdays (sun): it will never be published`,
 	}
-	if !slices.Equal(r.Warnings, want) {
-		t.Errorf("warnings:\n%s\nwant:\n%s", strings.Join(r.Warnings, "\n"), strings.Join(want, "\n"))
-	}
+	wantWarnings(t, r.Warnings, want)
 	if len(r.Notes) != 1 || !strings.HasPrefix(r.Notes[0], `feed "weddings": blue-hour: 2028-06-17 is after the window's end 2028-01-15 (days_ahead: 365)`) {
 		t.Errorf("notes:\n%s\nwant one, of blue-hour alone", strings.Join(r.Notes, "\n"))
 	}
@@ -188,9 +182,7 @@ feeds:
 		`feed "events": plan "Last year": 2026-06-13 is a Saturday, not in its weekdays (sun): it will never be published`,
 		`feed "events": plan "Open air": 2027-06-12 is in June, not in its months (jul): it will never be published`,
 	}
-	if !slices.Equal(r.Warnings, want) {
-		t.Errorf("warnings:\n%s\nwant:\n%s", strings.Join(r.Warnings, "\n"), strings.Join(want, "\n"))
-	}
+	wantWarnings(t, r.Warnings, want)
 	if len(r.Notes) != 0 {
 		t.Errorf("notes:\n%s\nwant none", strings.Join(r.Notes, "\n"))
 	}

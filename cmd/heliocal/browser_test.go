@@ -590,6 +590,20 @@ func TestBrowserBuilderFieldError(t *testing.T) {
 	}
 }
 
+// noneSplit runs script, which lists what a line break splits on the page
+// in ctx, and reports each such piece of what (dates, amounts) as split
+// where (the page and its width).
+func noneSplit(t *testing.T, ctx context.Context, script, where, what string) {
+	t.Helper()
+	split, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](script))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(split) > 0 {
+		t.Errorf("%s splits %d %s: %s", where, len(split), what, strings.Join(split, "; "))
+	}
+}
+
 // dateBreaks lists the row headings of the day-by-day tables (the page /at
 // and the builder's preview) that a line break splits inside the date:
 // "Tue 2026-12-" over "29". A heading may break after its weekday only.
@@ -642,13 +656,7 @@ func TestBrowserDatesWhole(t *testing.T) {
 		if err := chromedp.Do(ctx, chromedp.EmulateViewport(w, 800), chromedp.Navigate(table), chromedp.WaitVisible(chromedp.CSS("table.days"))); err != nil {
 			t.Fatal(err)
 		}
-		split, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](dateBreaks))
-		if err != nil {
-			t.Fatal(err)
-		}
-		if len(split) > 0 {
-			t.Errorf("the table page at %d px splits %d dates: %s", w, len(split), strings.Join(split, "; "))
-		}
+		noneSplit(t, ctx, dateBreaks, fmt.Sprintf("the table page at %d px", w), "dates")
 		intro, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](introDates))
 		if err != nil {
 			t.Fatal(err)
@@ -666,13 +674,7 @@ func TestBrowserDatesWhole(t *testing.T) {
 	); err != nil {
 		t.Fatal(err)
 	}
-	split, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](dateBreaks))
-	if err != nil {
-		t.Fatal(err)
-	}
-	if len(split) > 0 {
-		t.Errorf("the builder's preview at 320 px splits %d dates: %s", len(split), strings.Join(split, "; "))
-	}
+	noneSplit(t, ctx, dateBreaks, "the builder's preview at 320 px", "dates")
 }
 
 // On a tablet and a desk the day-by-day table (/at) keeps its date column

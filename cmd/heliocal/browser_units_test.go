@@ -1,6 +1,7 @@
 package main
 
 import (
+	"fmt"
 	"io"
 	"net/http"
 	"os"
@@ -57,13 +58,7 @@ func TestBrowserUnitsWhole(t *testing.T) {
 		if err := chromedp.Do(ctx, chromedp.EmulateViewport(w, 800), chromedp.Navigate(table), chromedp.WaitVisible(chromedp.CSS("table.days"))); err != nil {
 			t.Fatal(err)
 		}
-		split, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](unitBreaks))
-		if err != nil {
-			t.Fatal(err)
-		}
-		if len(split) > 0 {
-			t.Errorf("the table page at %d px splits %d amounts: %s", w, len(split), strings.Join(split, "; "))
-		}
+		noneSplit(t, ctx, unitBreaks, fmt.Sprintf("the table page at %d px", w), "amounts")
 	}
 	if err := chromedp.Do(ctx,
 		chromedp.EmulateViewport(320, 800),
@@ -82,13 +77,7 @@ func TestBrowserUnitsWhole(t *testing.T) {
 	); err != nil {
 		t.Fatal(err)
 	}
-	split, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](unitBreaks))
-	if err != nil {
-		t.Fatal(err)
-	}
-	if len(split) > 0 {
-		t.Errorf("the builder's preview at 320 px splits %d amounts: %s", len(split), strings.Join(split, "; "))
-	}
+	noneSplit(t, ctx, unitBreaks, "the builder's preview at 320 px", "amounts")
 }
 
 // The index page publish writes keeps a number and its unit on one line
@@ -106,13 +95,7 @@ func TestBrowserPublishedIndexUnitsWhole(t *testing.T) {
 		if err := chromedp.Do(ctx, chromedp.EmulateViewport(w, 800), chromedp.Navigate(page)); err != nil {
 			t.Fatal(err)
 		}
-		split, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](unitBreaksIn("header p, p.place, figcaption, main td")))
-		if err != nil {
-			t.Fatal(err)
-		}
-		if len(split) > 0 {
-			t.Errorf("the index page at %d px splits %d amounts: %s", w, len(split), strings.Join(split, "; "))
-		}
+		noneSplit(t, ctx, unitBreaksIn("header p, p.place, figcaption, main td"), fmt.Sprintf("the index page at %d px", w), "amounts")
 	}
 	files, err := filepath.Glob(filepath.Join(out, "*.*"))
 	if err != nil || len(files) < 3 {

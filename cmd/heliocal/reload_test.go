@@ -159,26 +159,13 @@ func TestServeRefusesOversizeFeed(t *testing.T) {
 	if err := os.WriteFile(path, []byte(refusing+reloadSite), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	ctx, cancel := context.WithCancel(context.Background())
-	defer cancel()
-	logs := &lockedBuffer{}
-	done := make(chan int, 1)
-	go func() {
-		done <- run(ctx, []string{"serve", "--config", path, "--listen", freePort(t), "--access-log=false"}, io.Discard, logs, noEnv)
-	}()
-	select {
-	case code := <-done:
-		last := logs.String()[strings.LastIndex(strings.TrimSuffix(logs.String(), "\n"), "\n")+1:]
-		if code != exitFailure || !strings.HasPrefix(last, "heliocal: ") || !strings.Contains(last, refused) || !strings.Contains(last, over) {
-			t.Errorf("serve exited %d, last line %q; want %d naming %q and %q", code, last, exitFailure, refused, over)
-		}
-		// nothing was served: the log does not speak of previous feeds
-		if strings.Contains(logs.String(), "previous feeds") || !strings.Contains(logs.String(), "no feeds to serve yet") {
-			t.Errorf("the first build's failure is logged as:\n%s", logs.String())
-		}
-	case <-time.After(60 * time.Second):
-		cancel()
-		t.Fatalf("serve still runs with a refused feed:\n%s", logs.String())
+	code, logs, last := serveExits(t, "--config", path, "--access-log=false")
+	if code != exitFailure || !strings.HasPrefix(last, "heliocal: ") || !strings.Contains(last, refused) || !strings.Contains(last, over) {
+		t.Errorf("serve exited %d, last line %q; want %d naming %q and %q", code, last, exitFailure, refused, over)
+	}
+	// nothing was served: the log does not speak of previous feeds
+	if strings.Contains(logs.String(), "previous feeds") || !strings.Contains(logs.String(), "no feeds to serve yet") {
+		t.Errorf("the first build's failure is logged as:\n%s", logs.String())
 	}
 
 	// a reload to the refusing file keeps the old feeds

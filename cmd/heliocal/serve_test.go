@@ -48,15 +48,41 @@ func freePort(t *testing.T) string {
 // stop, which shuts it down and returns its exit code.
 func serveInBackground(t *testing.T, args ...string) (addr string, logs *lockedBuffer, stop func() int) {
 	t.Helper()
+	addr, logs, cancel, done := startServe(t, args...)
+	return addr, logs, func() int { cancel(); return <-done }
+}
+
+// serveExits runs heliocal serve with args as serveInBackground does and
+// waits up to a minute for it to stop by itself, as it does when its first
+// build fails: its exit code, its log and the log's last line. A serve
+// still running then fails the test.
+func serveExits(t *testing.T, args ...string) (code int, logs *lockedBuffer, last string) {
+	t.Helper()
+	_, logs, cancel, done := startServe(t, args...)
+	select {
+	case code = <-done:
+	case <-time.After(60 * time.Second):
+		cancel()
+		t.Fatalf("serve %s still runs:\n%s", strings.Join(args, " "), logs.String())
+	}
+	last = logs.String()[strings.LastIndex(strings.TrimSuffix(logs.String(), "\n"), "\n")+1:]
+	return code, logs, last
+}
+
+// startServe starts heliocal serve with args on a free loopback address,
+// cancelled when the test ends: its address, its log, its cancel and the
+// channel of its exit code.
+func startServe(t *testing.T, args ...string) (addr string, logs *lockedBuffer, cancel func(), done chan int) {
+	t.Helper()
 	addr = freePort(t)
 	ctx, cancel := context.WithCancel(context.Background())
 	t.Cleanup(cancel)
 	logs = &lockedBuffer{}
-	done := make(chan int, 1)
+	done = make(chan int, 1)
 	go func() {
 		done <- run(ctx, append([]string{"serve", "--listen", addr}, args...), io.Discard, logs, noEnv)
 	}()
-	return addr, logs, func() int { cancel(); return <-done }
+	return addr, logs, cancel, done
 }
 
 // heliocal serve on the built-in demo: the wiring of the command (build,

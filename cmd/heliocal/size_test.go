@@ -3,7 +3,6 @@ package main
 import (
 	"context"
 	"encoding/json"
-	"io"
 	"os"
 	"path/filepath"
 	"regexp"
@@ -310,22 +309,9 @@ func TestTrimBeforeTodayRefused(t *testing.T) {
 		t.Errorf("a refused publish wrote %v", files)
 	}
 
-	ctx, cancel := context.WithCancel(context.Background())
-	defer cancel()
-	logs := &lockedBuffer{}
-	done := make(chan int, 1)
-	go func() {
-		done <- run(ctx, []string{"serve", "--config", cfg, "--listen", freePort(t), "--access-log=false"}, io.Discard, logs, noEnv)
-	}()
-	select {
-	case code := <-done:
-		last := logs.String()[strings.LastIndex(strings.TrimSuffix(logs.String(), "\n"), "\n")+1:]
-		if code != exitFailure || !strings.HasPrefix(last, "heliocal: ") || !strings.Contains(last, "feed meadow: ") || !strings.Contains(last, "before today at its site") {
-			t.Errorf("serve exited %d, last line %q", code, last)
-		}
-	case <-time.After(60 * time.Second):
-		cancel()
-		t.Fatalf("serve still runs with a refused feed:\n%s", logs.String())
+	code, _, last := serveExits(t, "--config", cfg, "--access-log=false")
+	if code != exitFailure || !strings.HasPrefix(last, "heliocal: ") || !strings.Contains(last, "feed meadow: ") || !strings.Contains(last, "before today at its site") {
+		t.Errorf("serve exited %d, last line %q", code, last)
 	}
 }
 

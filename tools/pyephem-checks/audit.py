@@ -249,6 +249,46 @@ class Site:
         return 1.76 / 60 * math.sqrt(self.elev) if self.elev > 0 else 0.0
 
 
+class Sky:
+    """PyEphem's sky at a site over the window d0..d1: the observer turned
+    for heliocal's Delta T at the middle of the window (Site.observer), the
+    Sun and the Moon, and the conversions between the observer's instants
+    and heliocal's UTC."""
+
+    def __init__(self, site, d0, d1):
+        mid = d0 + (d1 - d0) / 2
+        self.delta = delta_t(mid) - ephem.delta_t(to_ephem(mid))  # heliocal's Delta T - PyEphem's
+        self.o = site.observer(self.delta)
+        self.sun, self.moon = ephem.Sun(), ephem.Moon()
+
+    def shift(self, u):
+        """PyEphem's instant on the shifted observer as heliocal's UTC."""
+        dt = to_dt(u) - datetime.timedelta(seconds=self.delta)
+        return dt - datetime.timedelta(seconds=ut1_minus_utc(dt))
+
+    def unshift(self, dt):
+        """heliocal's UTC as PyEphem's instant on the shifted observer."""
+        return to_ephem(dt + datetime.timedelta(seconds=ut1_minus_utc(dt) + self.delta))
+
+    def sun_alt(self, t):
+        self.o.date = t
+        self.sun.compute(self.o)
+        return float(self.sun.alt) / DEG
+
+    def moon_alt(self, t):
+        """The altitude of the Moon's upper limb, with heliocal's radius."""
+        self.o.date = t
+        self.moon.compute(self.o)
+        return (float(self.moon.alt) + float(self.moon.radius) * MOON_RADIUS_KM / PYEPHEM_MOON_RADIUS_KM) / DEG
+
+    def rate(self, f):
+        """The rate of f, in degrees an hour, at heliocal's UTC instant."""
+        def r(dt):
+            u = self.unshift(dt)
+            return (f(u + 30 * ephem.second) - f(u - 30 * ephem.second)) / 60 * 3600
+        return r
+
+
 def heliocal(binary, site, start, end, kinds, extra=()):
     cmd = [binary, "events", "--lat", str(site.lat), "--lon", str(site.lon), "--elev", str(site.elev),
            "--tz", "UTC", "--from", start, "--to", end, "--kinds", ",".join(kinds), "--format", "json", *extra]
@@ -319,31 +359,10 @@ def audit(binary, site, start, end, moon=True, year_kinds=True):
     doc = heliocal(binary, site, before.strftime("%Y-%m-%d"), end, kinds)
     evs = doc["events"]
     results, missing = [], []
-    mid = d0 + (d1 - d0) / 2
-    delta = delta_t(mid) - ephem.delta_t(to_ephem(mid))  # heliocal's Delta T - PyEphem's
-    o = site.observer(delta)
-    sun, moonb = ephem.Sun(), ephem.Moon()
+    sky = Sky(site, d0, d1)
+    o, sun, moonb = sky.o, sky.sun, sky.moon
+    shift, sun_alt, moon_alt, rate = sky.shift, sky.sun_alt, sky.moon_alt, sky.rate
     e0, e1 = to_ephem(d0) - 1.5, to_ephem(d1) + 1.5
-
-    def shift(u):
-        """PyEphem's instant on the shifted observer as heliocal's UTC."""
-        dt = to_dt(u) - datetime.timedelta(seconds=delta)
-        return dt - datetime.timedelta(seconds=ut1_minus_utc(dt))
-
-    def sun_alt(t):
-        o.date = t
-        sun.compute(o)
-        return float(sun.alt) / DEG
-
-    def unshift(dt):
-        """heliocal's UTC as PyEphem's instant on the shifted observer."""
-        return to_ephem(dt + datetime.timedelta(seconds=ut1_minus_utc(dt) + delta))
-
-    def rate(f):
-        def r(dt):
-            u = unshift(dt)
-            return (f(u + 30 * ephem.second) - f(u - 30 * ephem.second)) / 60 * 3600
-        return r
 
     thresholds = sorted({fn(site) for fn, _ in SUN_KINDS.values()} | set(ALTITUDES) |
                         {h for b in BANDS.values() for h in b})
@@ -394,12 +413,6 @@ def audit(binary, site, start, end, moon=True, year_kinds=True):
                                 s.isoformat()))
     if moon:
         hmoon = -34 / 60 - site.dip()
-
-        def moon_alt(t):
-            o.date = t
-            moonb.compute(o)
-            return (float(moonb.alt) + float(moonb.radius) * MOON_RADIUS_KM / PYEPHEM_MOON_RADIUS_KM) / DEG
-
         mc = crossings(moon_alt, e0, e1, 5 * ephem.minute, [hmoon])
         for kind, direction in MOON_KINDS.items():
             ref = [shift(t) for t, d in mc[hmoon] if d == direction]

@@ -54,7 +54,7 @@ import ephem
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
 import audit  # noqa: E402
-from audit import (DEG, SUN_TOL, MOON_TOL, MOON_RADIUS_KM, PYEPHEM_MOON_RADIUS_KM, Site, crossings, delta_t,  # noqa: E402
+from audit import (DEG, SUN_TOL, MOON_TOL, Site, Sky, crossings,  # noqa: E402
                    match, parse, to_dt, to_ephem, tt_events, tt_of, ecl_lon, ut1_minus_utc)
 
 UTC = datetime.timezone.utc
@@ -187,34 +187,10 @@ def check(binary, place, start, end):
     d0, d1 = local_midnight(first, zone), local_midnight(last + datetime.timedelta(days=1), zone)
     before = (first - datetime.timedelta(days=1)).isoformat()
     results, missing = [], []
-    mid = d0 + (d1 - d0) / 2
-    delta = delta_t(mid) - ephem.delta_t(to_ephem(mid))
-    o = site.observer(delta)
-    sun, moonb = ephem.Sun(), ephem.Moon()
+    sky = Sky(site, d0, d1)
+    o, sun, moonb = sky.o, sky.sun, sky.moon
+    shift, sun_alt, moon_alt, rate = sky.shift, sky.sun_alt, sky.moon_alt, sky.rate
     e0, e1 = to_ephem(d0) - 1.5, to_ephem(d1) + 1.5
-
-    def shift(u):
-        dt = to_dt(u) - datetime.timedelta(seconds=delta)
-        return dt - datetime.timedelta(seconds=ut1_minus_utc(dt))
-
-    def unshift(dt):
-        return to_ephem(dt + datetime.timedelta(seconds=ut1_minus_utc(dt) + delta))
-
-    def sun_alt(t):
-        o.date = t
-        sun.compute(o)
-        return float(sun.alt) / DEG
-
-    def moon_alt(t):
-        o.date = t
-        moonb.compute(o)
-        return (float(moonb.alt) + float(moonb.radius) * MOON_RADIUS_KM / PYEPHEM_MOON_RADIUS_KM) / DEG
-
-    def rate(f):
-        def r(dt):
-            u = unshift(dt)
-            return (f(u + 30 * ephem.second) - f(u - 30 * ephem.second)) / 60 * 3600
-        return r
 
     top = max_noon_altitude(site, o, sun, to_ephem(d0), to_ephem(d1))
     near_top = [math.floor((top - 0.003) * 1000) / 1000, math.floor((top - 0.05) * 1000) / 1000]

@@ -70,13 +70,13 @@ func hasTimedEntries(f *config.Feed) bool {
 // 02-29") whose window, as cal was built for it, holds no 29 February: the
 // feed shows nothing for them until the window, which rolls with each day,
 // reaches the next one, days_ahead days before it. A plan whose months
-// leave February out is planDatesFilteredOut's.
-func leapDayWarnings(f *config.Feed, cal *feed.Calendar) []string {
+// leave February out is planDatesFilteredOut's. rules are the plans' date
+// rules (planRules).
+func leapDayWarnings(f *config.Feed, rules []config.DateRule, cal *feed.Calendar) []string {
 	first, last := cal.FirstDate(), cal.LastDate
 	var out []string
-	for _, p := range f.Plans {
-		r, err := config.ParseDateRule(p.Date)
-		if err != nil || r.Type != config.RuleYearly || r.Month != time.February || r.Day != 29 ||
+	for i, p := range f.Plans {
+		if r := rules[i]; r.Type != config.RuleYearly || r.Month != time.February || r.Day != 29 ||
 			!config.NewDateFilter(nil, p.Months, nil).Allows(time.Date(2000, time.February, 1, 0, 0, 0, 0, time.UTC)) {
 			continue
 		}
@@ -104,12 +104,11 @@ func nextLeapDay(d time.Time) time.Time {
 // sky ("photoperiod:20h", "full-moon") that no date of the window has: the
 // feed holds nothing for it, as a kinds entry's threshold never crossed is
 // warned of (Calendar.NotCrossed). Plans on listed, weekly or yearly dates
-// have their own warnings.
-func eventPlanWarnings(f *config.Feed, cal *feed.Calendar) []string {
+// have their own warnings. rules are the plans' date rules (planRules).
+func eventPlanWarnings(f *config.Feed, rules []config.DateRule, cal *feed.Calendar) []string {
 	var out []string
-	for _, p := range f.Plans {
-		r, err := config.ParseDateRule(p.Date)
-		if err != nil || r.Type != config.RuleEvent {
+	for i, p := range f.Plans {
+		if rules[i].Type != config.RuleEvent {
 			continue
 		}
 		if slices.ContainsFunc(cal.Entries, func(e feed.Entry) bool { return e.Kind == feed.KindPlan && e.Title == p.Title }) {

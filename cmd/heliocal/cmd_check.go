@@ -268,12 +268,13 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		for j, k := range f.Kinds {
 			listed[j] = config.ListedDates(k.Dates)
 		}
-		warnings, later := datesOutsideWindow(&f, shown, listed, cal)
+		rules := planRules(f.Plans)
+		warnings, later := datesOutsideWindow(&f, shown, listed, rules, cal)
 		r.Warnings = append(r.Warnings, warnings...)
 		r.Warnings = append(r.Warnings, datesFilteredOut(&f, shown, listed)...)
-		r.Warnings = append(r.Warnings, planDatesFilteredOut(&f)...)
-		r.Warnings = append(r.Warnings, leapDayWarnings(&f, cal)...)
-		r.Warnings = append(r.Warnings, eventPlanWarnings(&f, cal)...)
+		r.Warnings = append(r.Warnings, planDatesFilteredOut(&f, rules)...)
+		r.Warnings = append(r.Warnings, leapDayWarnings(&f, rules, cal)...)
+		r.Warnings = append(r.Warnings, eventPlanWarnings(&f, rules, cal)...)
 		r.Warnings = append(r.Warnings, allDayWarnings(&f, shown)...)
 		r.Notes = append(r.Notes, later...)
 		// encoded as publish and serve encode it, under service.oversize:

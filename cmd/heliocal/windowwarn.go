@@ -9,6 +9,17 @@ import (
 	"heliocal/feed"
 )
 
+// planRules are the date rules of plans, read once for check's warnings:
+// a rule that does not parse (config.Validate refuses it) is the zero
+// DateRule, of no type a warning looks for.
+func planRules(plans []config.Plan) []config.DateRule {
+	rules := make([]config.DateRule, len(plans))
+	for i, p := range plans {
+		rules[i], _ = config.ParseDateRule(p.Date)
+	}
+	return rules
+}
+
 // datesOutsideWindow words the dates that the entries of feed f name one by
 // one (a kinds entry's dates list, a plan's one date) and that lie outside
 // the feed's window as cal was built for it: a date before the window's
@@ -16,11 +27,11 @@ import (
 // once the window, which rolls with each day, reaches it, days_ahead days
 // before it (a note: next year's wedding dates are listed ahead). shown are
 // the kinds entries as check's table writes them, listed the dates each
-// lists (config.ListedDates). One line per date and side, naming every
-// entry that lists the date; a date the entry's own months or weekdays
-// leave out is not named here: datesFilteredOut and planDatesFilteredOut
-// say it is never published.
-func datesOutsideWindow(f *config.Feed, shown []string, listed [][]time.Time, cal *feed.Calendar) (warnings, notes []string) {
+// lists (config.ListedDates), rules the plans' date rules (planRules).
+// One line per date and side, naming every entry that lists the date; a
+// date the entry's own months or weekdays leave out is not named here:
+// datesFilteredOut and planDatesFilteredOut say it is never published.
+func datesOutsideWindow(f *config.Feed, shown []string, listed [][]time.Time, rules []config.DateRule, cal *feed.Calendar) (warnings, notes []string) {
 	first, last := cal.FirstDate(), cal.LastDate
 	var order []time.Time             // the dates outside, in the order first named
 	named := map[time.Time][]string{} // the entries naming each
@@ -41,9 +52,8 @@ func datesOutsideWindow(f *config.Feed, shown []string, listed [][]time.Time, ca
 			}
 		}
 	}
-	for _, p := range f.Plans {
-		if r, err := config.ParseDateRule(p.Date); err == nil && r.Type == config.RuleOnce &&
-			config.NewDateFilter(p.Weekdays, p.Months, nil).Allows(r.Date) {
+	for i, p := range f.Plans {
+		if r := rules[i]; r.Type == config.RuleOnce && p.Filter().Allows(r.Date) {
 			add(fmt.Sprintf("plan %q", p.Title), r.Date)
 		}
 	}
@@ -88,14 +98,12 @@ func datesFilteredOut(f *config.Feed, shown []string, listed [][]time.Time) []st
 // never published: one date ("2027-06-12") in another month or on another
 // day of the week, a weekday rule ("every friday", "saturday nearest
 // new-moon") on a day its weekdays leave out, a yearly date ("every 04-25")
-// in a month its months leave out. One line per plan and filter.
-func planDatesFilteredOut(f *config.Feed) []string {
+// in a month its months leave out. One line per plan and filter. rules
+// are the plans' date rules (planRules).
+func planDatesFilteredOut(f *config.Feed, rules []config.DateRule) []string {
 	var out []string
-	for _, p := range f.Plans {
-		r, err := config.ParseDateRule(p.Date)
-		if err != nil {
-			continue
-		}
+	for i, p := range f.Plans {
+		r := rules[i]
 		months := config.NewDateFilter(nil, p.Months, nil)
 		weekdays := config.NewDateFilter(p.Weekdays, nil, nil)
 		entry := fmt.Sprintf("plan %q", p.Title)

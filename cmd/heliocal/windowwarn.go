@@ -77,18 +77,24 @@ func datesOutsideWindow(f *config.Feed, shown []string, listed [][]time.Time, ru
 func datesFilteredOut(f *config.Feed, shown []string, listed [][]time.Time) []string {
 	var out []string
 	for i, k := range f.Kinds {
-		months := config.NewDateFilter(nil, k.Months, nil)
-		weekdays := config.NewDateFilter(k.Weekdays, nil, nil)
 		for _, d := range listed[i] {
-			if !months.Allows(d) {
-				out = append(out, fmt.Sprintf("feed %q: %s: %s is in %s, not in its months (%s): it will never be published",
-					f.ID, shown[i], d.Format(time.DateOnly), d.Month(), strings.Join(k.Months, ", ")))
-			}
-			if !weekdays.Allows(d) {
-				out = append(out, fmt.Sprintf("feed %q: %s: %s is a %s, not in its weekdays (%s): it will never be published",
-					f.ID, shown[i], d.Format(time.DateOnly), d.Weekday(), strings.Join(k.Weekdays, ", ")))
-			}
+			out = append(out, dateLeftOut(f.ID, shown[i], d, k.Months, k.Weekdays)...)
 		}
+	}
+	return out
+}
+
+// dateLeftOut words the date d that an entry of feed feedID names and that
+// its own months or weekdays leave out: one line per filter.
+func dateLeftOut(feedID, entry string, d time.Time, months, weekdays []string) []string {
+	var out []string
+	if !config.NewDateFilter(nil, months, nil).Allows(d) {
+		out = append(out, fmt.Sprintf("feed %q: %s: %s is in %s, not in its months (%s): it will never be published",
+			feedID, entry, d.Format(time.DateOnly), d.Month(), strings.Join(months, ", ")))
+	}
+	if !config.NewDateFilter(weekdays, nil, nil).Allows(d) {
+		out = append(out, fmt.Sprintf("feed %q: %s: %s is a %s, not in its weekdays (%s): it will never be published",
+			feedID, entry, d.Format(time.DateOnly), d.Weekday(), strings.Join(weekdays, ", ")))
 	}
 	return out
 }
@@ -109,14 +115,7 @@ func planDatesFilteredOut(f *config.Feed, rules []config.DateRule) []string {
 		entry := fmt.Sprintf("plan %q", p.Title)
 		switch r.Type {
 		case config.RuleOnce:
-			if !months.Allows(r.Date) {
-				out = append(out, fmt.Sprintf("feed %q: %s: %s is in %s, not in its months (%s): it will never be published",
-					f.ID, entry, r.Date.Format(time.DateOnly), r.Date.Month(), strings.Join(p.Months, ", ")))
-			}
-			if !weekdays.Allows(r.Date) {
-				out = append(out, fmt.Sprintf("feed %q: %s: %s is a %s, not in its weekdays (%s): it will never be published",
-					f.ID, entry, r.Date.Format(time.DateOnly), r.Date.Weekday(), strings.Join(p.Weekdays, ", ")))
-			}
+			out = append(out, dateLeftOut(f.ID, entry, r.Date, p.Months, p.Weekdays)...)
 		case config.RuleWeekly, config.RuleWeekdayOf:
 			if !weekdays.Allows(dateOnWeekday(r.Weekday)) {
 				out = append(out, fmt.Sprintf("feed %q: %s: its dates (%s) are %ss, not in its weekdays (%s): it will never be published",

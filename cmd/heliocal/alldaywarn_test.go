@@ -88,11 +88,12 @@ func TestFeedAlarmAllDayWarning(t *testing.T) {
 	wantWarnings(t, r.Warnings, want)
 }
 
-// eventPlanFeed is at 34.6° S, where the longest day is about 14 h 30 min
-// and the day length passes 12 h at each equinox (common knowledge of the
-// latitude, from memory): a plan on the date the day length passes 20 h has
-// no date, while the plans on the 12 h crossings and the full Moons have
-// theirs.
+// eventPlanFeed is at 34.6° S, where the longest day is 14 h 32 min and
+// the shortest 9 h 53 min (PyEphem 4.1.4, sunrise to sunset at the upper
+// limb's standard altitude of -50′, on 21 December 2026 and 21 June 2027),
+// so that the day length passes 12 h twice a year: a plan on the date the
+// day length passes 20 h has no date, while the plans on the 12 h
+// crossings and the full Moons have theirs.
 const eventPlanFeed = `sites:
   - {id: pampa, latitude: -34.6, longitude: -58.4, timezone: America/Argentina/Buenos_Aires}
 feeds:

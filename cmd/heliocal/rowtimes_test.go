@@ -106,8 +106,9 @@ func TestRowsSayTimesOnce(t *testing.T) {
 	if lamps == 0 {
 		t.Error("no lamp period in the rows")
 	}
-	// in Tromsø's polar night (late November to mid-January, from memory)
-	// the lamps give the whole 16 h
+	// in Tromsø's polar night (no sunrise from 29 November 2026 to 13
+	// January 2027: PyEphem 4.1.4, the upper limb's standard altitude of
+	// -50′) the lamps give the whole 16 h
 	if whole == 0 {
 		t.Error(`no row "Lamps on for 16 h, to reach 16 h" in Tromsø's polar night`)
 	}

@@ -289,6 +289,24 @@ class Sky:
         return r
 
 
+def tally(alld, worst, key, name, h, d):
+    """Counts the difference d of the event at h of the place name under
+    key: every absolute difference (alld) and the largest (worst)."""
+    alld.setdefault(key, []).append(abs(d))
+    if key not in worst or abs(d) > abs(worst[key][0]):
+        worst[key] = (d, name, h.isoformat())
+
+
+def print_worst(alld, worst, width, count_width):
+    """Prints, per key, the count, median, 99th percentile and largest of
+    the differences tallied, and where the largest is."""
+    for k in sorted(worst):
+        d, name, when = worst[k]
+        v = sorted(alld[k])
+        print("  %-*s n=%*d  median %.2f s  p99 %.2f s  max %+8.2f s  %s  %s" % (
+            width, k, count_width, len(v), v[len(v) // 2], v[min(len(v) - 1, int(len(v) * 0.99))], d, name, when))
+
+
 def heliocal(binary, site, start, end, kinds, extra=()):
     cmd = [binary, "events", "--lat", str(site.lat), "--lon", str(site.lon), "--elev", str(site.elev),
            "--tz", "UTC", "--from", start, "--to", end, "--kinds", ",".join(kinds), "--format", "json", *extra]
@@ -610,16 +628,9 @@ def main():
             for m in missing:
                 print("   %-28s %s %s" % m)
             for label, h, r, d, _ in results:
-                k = label.split(" ")[0] + (" vs ERFA" if "ERFA" in label else "")
-                alld.setdefault(k, []).append(abs(d))
-                if k not in worst or abs(d) > abs(worst[k][0]):
-                    worst[k] = (d, name, h.isoformat())
+                tally(alld, worst, label.split(" ")[0] + (" vs ERFA" if "ERFA" in label else ""), name, h, d)
     print("\n%d events matched. Largest difference per kind (heliocal - PyEphem):" % total)
-    for k in sorted(worst):
-        d, name, when = worst[k]
-        v = sorted(alld[k])
-        print("  %-24s n=%5d  median %.2f s  p99 %.2f s  max %+8.2f s  %s  %s" % (
-            k, len(v), v[len(v) // 2], v[min(len(v) - 1, int(len(v) * 0.99))], d, name, when))
+    print_worst(alld, worst, 24, 5)
     extra_checks(binary)
 
 

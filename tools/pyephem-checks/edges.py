@@ -55,7 +55,7 @@ import ephem
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
 import audit  # noqa: E402
 from audit import (DEG, SUN_TOL, MOON_TOL, Site, Sky, crossings,  # noqa: E402
-                   match, parse, to_dt, to_ephem, tt_events, tt_of, ecl_lon, ut1_minus_utc)
+                   match, parse, print_worst, tally, to_dt, to_ephem, tt_events, tt_of, ecl_lon, ut1_minus_utc)
 
 UTC = datetime.timezone.utc
 
@@ -467,16 +467,9 @@ def main():
                     at = datetime.datetime.fromisoformat(m[2]) if m[2] else datetime.datetime.fromisoformat(m[1].split("PyEphem ")[1].rstrip(")"))
                     print("   %30s %s" % ("", arbiter.extreme(place, thr[m[0]], at)))
             for label, h, r, d, _ in results:
-                k = label
-                alld.setdefault(k, []).append(abs(d))
-                if k not in worst or abs(d) > abs(worst[k][0]):
-                    worst[k] = (d, name, h.isoformat())
+                tally(alld, worst, label, name, h, d)
     print("\n%d events matched. Differences per kind (|heliocal - PyEphem|, or ERFA where named):" % total)
-    for k in sorted(worst):
-        d, name, when = worst[k]
-        v = sorted(alld[k])
-        print("  %-32s n=%6d  median %.2f s  p99 %.2f s  max %+8.2f s  %s  %s" % (
-            k, len(v), v[len(v) // 2], v[min(len(v) - 1, int(len(v) * 0.99))], d, name, when))
+    print_worst(alld, worst, 32, 6)
     if "--no-eclipses" not in only:
         eclipses(binary)
 

@@ -1196,6 +1196,7 @@ func problemFor(path string, err error) []FieldError {
 	}
 	if rest, ok := strings.CutPrefix(msg, "has invalid keys: "); ok {
 		var out []FieldError
+		keys := keysAt(path)
 		for _, key := range strings.Split(rest, ", ") {
 			shownKey := key
 			if shownKey == "" {
@@ -1206,10 +1207,8 @@ func problemFor(path string, err error) []FieldError {
 				p = path + "." + shownKey
 			}
 			fe := FieldError{Path: p, Value: key, Msg: "unknown key"}
-			if near := closest(key, keysAt(path)); near != "" {
-				fe.Hint = fmt.Sprintf("did you mean %q?", near)
-			} else if keys := keysAt(path); len(keys) > 0 {
-				fe.Hint = "known keys here: " + strings.Join(keys, ", ")
+			if len(keys) > 0 {
+				fe.Hint = nearValue(key, keys, "known keys here: "+strings.Join(keys, ", "))
 			}
 			out = append(out, fe)
 		}

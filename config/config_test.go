@@ -837,3 +837,21 @@ func TestFahrenheitHint(t *testing.T) {
 		}
 	}
 }
+
+// lineAt finds the line that splitting the file at every "\n" gives, the
+// last one after a final "\n" (empty) included, and none past it.
+func TestLineAt(t *testing.T) {
+	for _, data := range []string{"", "a", "a\n", "a\r\nb = 1\r\n", "\n\nx\n y"} {
+		lines := bytes.Split([]byte(data), []byte("\n"))
+		for row := -1; row <= len(lines)+1; row++ {
+			got, ok := lineAt([]byte(data), row)
+			want, wantOK := []byte(nil), row >= 1 && row <= len(lines)
+			if wantOK {
+				want = lines[row-1]
+			}
+			if ok != wantOK || !bytes.Equal(got, want) {
+				t.Errorf("lineAt(%q, %d) = %q, %v; want %q, %v", data, row, got, ok, want, wantOK)
+			}
+		}
+	}
+}

@@ -336,8 +336,8 @@ func tableName(it unstable.Iterator) string {
 // shows the two ways of writing the list.
 func listThenTables(data []byte, path string, first keyPlace, name string, line int) FieldError {
 	written := first.written
-	if lines := bytes.Split(data, []byte("\n")); first.line >= 1 && first.line <= len(lines) {
-		written = string(bytes.TrimSpace(lines[first.line-1])) // kinds = ["sunrise"]
+	if l, ok := lineAt(data, first.line); ok {
+		written = string(bytes.TrimSpace(l)) // kinds = ["sunrise"]
 		if strings.Count(written, "[") > strings.Count(written, "]") {
 			written += " …]" // a list over several lines
 		}

@@ -385,11 +385,11 @@ var topNotMappingRE = sync.OnceValue(func() *regexp.Regexp {
 // is given to when it is written on that line: "dates: 2027-02-30: " for
 // `dates = [2027-06-12, 2027-02-30]`; "" when no such value starts there.
 func tomlValueAt(data []byte, row, col int) string {
-	lines := bytes.Split(data, []byte("\n"))
-	if row < 1 || row > len(lines) || col < 1 || col > len(lines[row-1]) {
+	l, ok := lineAt(data, row)
+	if !ok || col < 1 || col > len(l) {
 		return ""
 	}
-	line := string(bytes.TrimRight(lines[row-1], "\r"))
+	line := string(bytes.TrimRight(l, "\r"))
 	if col > len(line) || line[col-1] < '0' || line[col-1] > '9' {
 		return ""
 	}
@@ -399,6 +399,25 @@ func tomlValueAt(data []byte, row, col int) string {
 		return value + ": "
 	}
 	return key + ": " + value + ": "
+}
+
+// lineAt is line row (from 1) of data, as written up to its "\n"; false
+// past the last line. It finds the one line without splitting the file.
+func lineAt(data []byte, row int) ([]byte, bool) {
+	if row < 1 {
+		return nil, false
+	}
+	for ; row > 1; row-- {
+		i := bytes.IndexByte(data, '\n')
+		if i < 0 {
+			return nil, false
+		}
+		data = data[i+1:]
+	}
+	if i := bytes.IndexByte(data, '\n'); i >= 0 {
+		data = data[:i]
+	}
+	return data, true
 }
 
 // jsonHint says what the usual slips that give the JSON decoder's syntax
@@ -432,11 +451,11 @@ func jsonHint(msg string, before []byte) string {
 // which the TOML parser refuses as a malformed number: the line as written
 // and the line to write, `timezone = "Europe/Vienna"`; "" for other lines.
 func tomlBareText(data []byte, row int) string {
-	lines := bytes.Split(data, []byte("\n"))
-	if row < 1 || row > len(lines) {
+	l, ok := lineAt(data, row)
+	if !ok {
 		return ""
 	}
-	key, value, ok := strings.Cut(strings.TrimSpace(strings.TrimRight(string(lines[row-1]), "\r")), "=")
+	key, value, ok := strings.Cut(strings.TrimSpace(strings.TrimRight(string(l), "\r")), "=")
 	key, value = strings.TrimSpace(key), strings.TrimSpace(value)
 	if i := strings.Index(value, " #"); i >= 0 { // a comment after the value
 		value = strings.TrimSpace(value[:i])

@@ -281,6 +281,17 @@ class Sky:
         self.moon.compute(self.o)
         return (float(self.moon.alt) + float(self.moon.radius) * MOON_RADIUS_KM / PYEPHEM_MOON_RADIUS_KM) / DEG
 
+    def transits(self, body, e0, e1):
+        """PyEphem's instants of the body's transits from e0 to e1 (PyEphem
+        dates), each the next after half a day past the one before."""
+        out, t = [], e0
+        while t < e1:
+            self.o.date = t
+            tr = self.o.next_transit(body)
+            out.append(tr)
+            t = ephem.Date(tr + 0.5)
+        return out
+
     def rate(self, f):
         """The rate of f, in degrees an hour, at heliocal's UTC instant."""
         def r(dt):
@@ -378,7 +389,6 @@ def audit(binary, site, start, end, moon=True, year_kinds=True):
     evs = doc["events"]
     results, missing = [], []
     sky = Sky(site, d0, d1)
-    o, sun, moonb = sky.o, sky.sun, sky.moon
     shift, sun_alt, moon_alt, rate = sky.shift, sky.sun_alt, sky.moon_alt, sky.rate
     e0, e1 = to_ephem(d0) - 1.5, to_ephem(d1) + 1.5
 
@@ -411,15 +421,9 @@ def audit(binary, site, start, end, moon=True, year_kinds=True):
         match(sorted(hel), ref, SUN_TOL, (d0, d1), kind + " bounds", results, missing, rate(sun_alt))
     # solar noon: PyEphem's transits
     ref, alts = [], {}
-    t = e0
-    while t < e1:
-        o.date = t
-        tr = o.next_transit(sun)
+    for tr in sky.transits(sky.sun, e0, e1):
         ref.append(shift(tr))
-        o.date = tr
-        sun.compute(o)
-        alts[ref[-1]] = float(sun.alt) / DEG
-        t = ephem.Date(tr + 0.5)
+        alts[ref[-1]] = sun_alt(tr)
     hel = [parse(e["start"]) for e in evs if e["kind"] == "solar-noon"]
     match(hel, ref, SUN_TOL, window, "solar-noon", results, missing)
     for e in evs:
@@ -436,13 +440,7 @@ def audit(binary, site, start, end, moon=True, year_kinds=True):
             ref = [shift(t) for t, d in mc[hmoon] if d == direction]
             hel = [parse(e["start"]) for e in evs if e["kind"] == kind]
             match(hel, ref, MOON_TOL, window, kind, results, missing, rate(moon_alt))
-        ref = []
-        t = e0
-        while t < e1:
-            o.date = t
-            tr = o.next_transit(moonb)
-            ref.append(shift(tr))
-            t = ephem.Date(tr + 0.5)
+        ref = [shift(tr) for tr in sky.transits(sky.moon, e0, e1)]
         hel = [parse(e["start"]) for e in evs if e["kind"] == "moon-transit"]
         match(hel, ref, MOON_TOL, window, "moon-transit", results, missing)
         for kind, target in PHASES.items():

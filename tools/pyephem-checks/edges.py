@@ -54,7 +54,7 @@ import ephem
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
 import audit  # noqa: E402
-from audit import (DEG, SUN_TOL, MOON_TOL, Site, Sky, crossings,  # noqa: E402
+from audit import (SUN_TOL, MOON_TOL, Site, Sky, crossings,  # noqa: E402
                    match, parse, print_worst, tally, to_dt, to_ephem, tt_events, tt_of, ecl_lon, ut1_minus_utc)
 
 UTC = datetime.timezone.utc
@@ -138,17 +138,9 @@ def local_midnight(date, zone):
     return datetime.datetime(date.year, date.month, date.day, tzinfo=zone).astimezone(UTC)
 
 
-def max_noon_altitude(site, o, sun, e0, e1):
-    best = -90.0
-    t = e0
-    while t < e1:
-        o.date = t
-        tr = o.next_transit(sun)
-        o.date = tr
-        sun.compute(o)
-        best = max(best, float(sun.alt) / DEG)
-        t = ephem.Date(tr + 0.5)
-    return best
+def max_noon_altitude(sky, e0, e1):
+    """The Sun's highest altitude at its transits from e0 to e1."""
+    return max([-90.0] + [sky.sun_alt(tr) for tr in sky.transits(sky.sun, e0, e1)])
 
 
 def intervals_below(cr_list, below_at_start, t0, t1):
@@ -188,11 +180,10 @@ def check(binary, place, start, end):
     before = (first - datetime.timedelta(days=1)).isoformat()
     results, missing = [], []
     sky = Sky(site, d0, d1)
-    o, sun, moonb = sky.o, sky.sun, sky.moon
     shift, sun_alt, moon_alt, rate = sky.shift, sky.sun_alt, sky.moon_alt, sky.rate
     e0, e1 = to_ephem(d0) - 1.5, to_ephem(d1) + 1.5
 
-    top = max_noon_altitude(site, o, sun, to_ephem(d0), to_ephem(d1))
+    top = max_noon_altitude(sky, to_ephem(d0), to_ephem(d1))
     near_top = [math.floor((top - 0.003) * 1000) / 1000, math.floor((top - 0.05) * 1000) / 1000]
     altitudes = sorted(set([-3.0, 10.0] + [a for a in near_top if -89 < a < 89]))
     kinds = (list(SUN_KINDS) + ["solar-noon"] + ["sun-altitude:%g" % a for a in altitudes] + list(BANDS) +
@@ -254,12 +245,7 @@ def check(binary, place, start, end):
                 hel.append(parse(e["end"]))
         hel = [t for t in hel if t >= d0 - datetime.timedelta(hours=1)]
         match(sorted(hel), ref, SUN_TOL, window, kind + " bounds", results, missing, rate(sun_alt))
-    ref, t = [], e0
-    while t < e1:
-        o.date = t
-        tr = o.next_transit(sun)
-        ref.append(shift(tr))
-        t = ephem.Date(tr + 0.5)
+    ref = [shift(tr) for tr in sky.transits(sky.sun, e0, e1)]
     hel = [parse(e["start"]) for e in evs if e["kind"] == "solar-noon"]
     match(hel, ref, SUN_TOL, window, "solar-noon", results, missing)
 
@@ -268,12 +254,7 @@ def check(binary, place, start, end):
         ref = [shift(t) for t, d in mc[hmoon] if d == direction]
         hel = [parse(e["start"]) for e in evs if e["kind"] == kind]
         match(hel, ref, MOON_TOL, window, kind, results, missing, rate(moon_alt))
-    ref, t = [], e0
-    while t < e1:
-        o.date = t
-        tr = o.next_transit(moonb)
-        ref.append(shift(tr))
-        t = ephem.Date(tr + 0.5)
+    ref = [shift(tr) for tr in sky.transits(sky.moon, e0, e1)]
     hel = [parse(e["start"]) for e in evs if e["kind"] == "moon-transit"]
     match(hel, ref, MOON_TOL, window, "moon-transit", results, missing)
 

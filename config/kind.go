@@ -191,15 +191,14 @@ func ParseKind(s string) (Kind, error) {
 	base = strings.TrimSpace(base)
 	param = strings.TrimSpace(param)
 	d, ok := kindIndex[base]
-	if !ok && text == "" { // `kind: ""`, `kinds: [""]`: no value to name
-		return Kind{}, &KindError{Value: s, Msg: "is empty: name a kind", Hint: "known kinds: " + strings.Join(KindNames, ", ")}
-	}
 	if !ok {
-		hint := "known kinds: " + strings.Join(KindNames, ", ")
-		if near := nearKind(text, KindNames); near != "" {
+		msg, hint := msgUnknownKind, "known kinds: "+strings.Join(KindNames, ", ")
+		if text == "" { // `kind: ""`, `kinds: [""]`: no value to name
+			msg = "is empty: name a kind"
+		} else if near := nearKind(text, KindNames); near != "" {
 			hint = fmt.Sprintf("did you mean %q?", near)
 		}
-		return Kind{}, &KindError{Value: s, Msg: msgUnknownKind, Hint: hint}
+		return Kind{}, &KindError{Value: s, Msg: msg, Hint: hint}
 	}
 	if d.flags&flagParam == 0 {
 		if hasParam {

@@ -133,7 +133,7 @@ func checkEventsFlags(o *eventsOptions) error {
 		return badInput("--format: %q: use table, json, csv or ics", o.format)
 	}
 	if math.IsNaN(o.maxLit) || o.maxLit < 0 || o.maxLit > 1 {
-		hint := "a fraction of 1, e.g. 0.25 for a quarter lit"
+		hint := flagHints["max-illumination"]
 		if o.maxLit > 1 && o.maxLit <= 100 {
 			hint = fmt.Sprintf("a fraction of 1: %g for %g %%", o.maxLit/100, o.maxLit) // 30 meant as a percentage
 		}

@@ -669,8 +669,11 @@ const spanLimit = 24 * time.Hour
 
 // checkAlarm checks an alarm at path: a feed's (override false), or a kinds
 // entry's or a plan's that replaces it (override true: "0s" turns the
-// feed's reminder off there, which the hint says).
-func checkAlarm(ps *problems, path string, a Duration, override bool) {
+// feed's reminder off there, which the hint says); nil is no alarm given.
+func checkAlarm(ps *problems, path string, a *Duration, override bool) {
+	if a == nil { // none given: the feed's alarm holds
+		return
+	}
 	if d := a.D(); d < 0 {
 		hint := `e.g. "15m" for 15 minutes before`
 		if override {
@@ -761,9 +764,7 @@ func nearName(v string, short, full []string) string {
 // validateOptions checks the per-entry options of a kinds entry: alarm,
 // min_duration, weekdays, months, dates and the lighting options.
 func (ks *KindSpec) validateOptions(ps *problems, p string) {
-	if ks.Alarm != nil {
-		checkAlarm(ps, p+".alarm", *ks.Alarm, true)
-	}
+	checkAlarm(ps, p+".alarm", ks.Alarm, true)
 	if md := ks.MinDuration.D(); md < 0 || md > spanLimit {
 		ps.add(p+".min_duration", ks.MinDuration.String(), "must be within 0..24h", `e.g. "45m"`)
 	} else if md != 0 && !ks.Kind.IsSpan() {
@@ -839,9 +840,7 @@ func (pl *Plan) validate(ps *problems, p string) {
 		}
 	}
 	checkFilter(ps, p, pl.Weekdays, pl.Months, nil)
-	if pl.Alarm != nil {
-		checkAlarm(ps, p+".alarm", *pl.Alarm, true)
-	}
+	checkAlarm(ps, p+".alarm", pl.Alarm, true)
 }
 
 func firstNonEmpty(a, b string) string {

@@ -573,7 +573,7 @@ func (f *Feed) validate(ps *problems, p string) {
 		ps.add(p+".color", f.Color, "not a CSS3 colour name",
 			nearValue(f.Color, cssColorNames, `a CSS3 colour name such as "goldenrod" or "steelblue"`))
 	}
-	checkAlarm(ps, p+".alarm", f.Alarm, false)
+	checkAlarm(ps, p+".alarm", &f.Alarm, false)
 }
 
 // OffsetProblem says why offset o cannot shift the events of kind k (a

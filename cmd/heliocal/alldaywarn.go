@@ -25,7 +25,7 @@ func allDayWarnings(f *config.Feed, shown []string) []string {
 			f.ID, f.Alarm))
 	}
 	for i, k := range f.Kinds {
-		if !k.AllDay && !k.Kind.IsAllDay() {
+		if !entriesAllDay(k) {
 			continue
 		}
 		if k.Alarm != nil && k.Alarm.D() > 0 {
@@ -54,7 +54,7 @@ func allDayWarnings(f *config.Feed, shown []string) []string {
 // or a plan with a start.
 func hasTimedEntries(f *config.Feed) bool {
 	for _, k := range f.Kinds {
-		if !k.AllDay && !k.Kind.IsAllDay() {
+		if !entriesAllDay(k) {
 			return true
 		}
 	}
@@ -65,6 +65,10 @@ func hasTimedEntries(f *config.Feed) bool {
 	}
 	return false
 }
+
+// entriesAllDay reports whether the entries of kinds entry k are all-day:
+// by its kind (daily-summary, photoperiod) or by all_day: true.
+func entriesAllDay(k config.KindSpec) bool { return k.AllDay || k.Kind.IsAllDay() }
 
 // leapDayWarnings words the plans of feed f on 29 February ("every
 // 02-29") whose window, as cal was built for it, holds no 29 February: the

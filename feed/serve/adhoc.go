@@ -308,7 +308,7 @@ func (q *AdhocQuery) parseWindow(get getter, now time.Time, lim *adhocLimits) er
 	if ok {
 		d, err := time.Parse(time.DateOnly, v)
 		if err != nil {
-			return &QueryError{Param: ParamStart, Value: v, Msg: "not a date of the form YYYY-MM-DD"}
+			return &QueryError{Param: ParamStart, Value: v, Msg: "not a date (" + config.DateHint(v) + ")"}
 		}
 		q.Start = d
 	} else {

@@ -111,6 +111,12 @@ func TestAdhocBadParameters(t *testing.T) {
 		{ok + "&start=2026-13-01", "start", `"2026-13-01"`},
 		{ok + "&start=2026-02-30", "start", `"2026-02-30"`},
 		{ok + "&start=01.03.2026", "start", `"01.03.2026"`},
+		// a date that does not exist or is written another way gets the hint
+		// the configuration's dates and --from get (February 2026 has 28 days:
+		// 2026 is not divisible by 4, Gregorian calendar)
+		{ok + "&start=2026-02-30", "start", `"2026-02-30": not a date (February 2026 has 28 days)`},
+		{ok + "&start=2026-2-3", "start", `"2026-2-3": not a date (write it 2026-02-03)`},
+		{ok + "&start=26-02-03", "start", `"26-02-03": not a date (write the year in full: 2026-02-03)`},
 		{ok + "&start=1799-12-31", "start", `"1799-12-31"`},
 		{ok + "&start=2200-12-01&days=60", "start", `"2200-12-01"`},
 		{ok + "&elev=9001", "elev", `"9001"`},

@@ -704,3 +704,50 @@ func TestBrowserTableColumns(t *testing.T) {
 		}
 	}
 }
+
+// A refused value is shown in its message as it was given, and a skyline
+// can be 72 points long: on a 390 px phone the message wraps within the
+// page, on the table page (/at) that refuses a 73-point skyline as in the
+// builder, whose message under the input says the same, rather than
+// running off its right edge and scrolling the page sideways.
+func TestBrowserLongMessageWraps(t *testing.T) {
+	ts := builderServer(t)
+	ctx := browser(t)
+	points := make([]string, 73)
+	for i := range points {
+		points[i] = fmt.Sprintf("%d:%d", i*5, 1+i%7)
+	}
+	skyline := strings.Join(points[:72], ",") + ",3:99" // 73 points, the last over 45°
+	if err := chromedp.Do(ctx,
+		chromedp.EmulateViewport(390, 844),
+		chromedp.Navigate(ts.URL+"/at?lat=47.05&lon=11.2&tz=Europe/Vienna&horizon="+url.QueryEscape(skyline)),
+		chromedp.WaitVisible(chromedp.CSS("p.message")),
+	); err != nil {
+		t.Fatal(err)
+	}
+	problems, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](layoutProblems))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(problems) > 0 {
+		t.Errorf("the table page refusing a 73-point skyline at 390 px: %s", strings.Join(problems, "; "))
+	}
+	if err := chromedp.Do(ctx,
+		chromedp.Navigate(ts.URL+"/"),
+		chromedp.WaitVisible(chromedp.ID("lat")),
+		chromedp.SendKeys(chromedp.ID("lat"), "47.05"),
+		chromedp.SendKeys(chromedp.ID("lon"), "11.2"),
+		chromedp.SetValue(chromedp.ID("horizon"), skyline),
+		chromedp.Evaluate[chromedp.Void](`document.getElementById("builder").dispatchEvent(new Event("input"))`),
+		chromedp.Poll[chromedp.Void](`document.getElementById("horizon").getAttribute("aria-invalid") === "true" && !document.getElementById("field-error").hidden`),
+	); err != nil {
+		t.Fatal(err)
+	}
+	problems, err = chromedp.Run(ctx, chromedp.Evaluate[[]string](layoutProblems))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(problems) > 0 {
+		t.Errorf("the builder refusing a 73-point skyline at 390 px: %s", strings.Join(problems, "; "))
+	}
+}

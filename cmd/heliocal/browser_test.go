@@ -37,7 +37,13 @@ import (
 // `heliocal serve` does, on 127.0.0.1.
 func builderServer(t *testing.T) *httptest.Server {
 	t.Helper()
-	cfg, err := config.Load(filepath.Join("..", "..", "config", "demo.yaml"))
+	return builderServerFor(t, filepath.Join("..", "..", "config", "demo.yaml"))
+}
+
+// builderServerFor is builderServer for the configuration file at path.
+func builderServerFor(t *testing.T, path string) *httptest.Server {
+	t.Helper()
+	cfg, err := config.Load(path)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -749,5 +755,58 @@ func TestBrowserLongMessageWraps(t *testing.T) {
 	}
 	if len(problems) > 0 {
 		t.Errorf("the builder refusing a 73-point skyline at 390 px: %s", strings.Join(problems, "; "))
+	}
+}
+
+// longWords is a configuration whose page title, site name and feed title
+// hold words longer than a phone's line: compound words as German writes
+// them (the names are invented).
+const longWords = `page:
+  title: "Sternwartenbeobachtungsgemeinschaft Kestrelhöhe"
+  intro: "Himmelsbeobachtungsnachmittagsveranstaltungen und Dunkelheitsfenster"
+sites:
+  - id: kestrel
+    name: "Volkssternwartenförderverein Kestrelhöhe"
+    latitude: -31.52
+    longitude: 149.07
+    timezone: Australia/Sydney
+feeds:
+  - id: kestrel-dark
+    title: "Dunkelheitsfensterbenachrichtigungen Kestrelhöhe"
+    description: "Beobachtungsnachtankündigungen"
+    site: kestrel
+    kinds: [dark-window]
+    days_ahead: 30
+`
+
+// A word longer than a line (a compound of German, a name written without
+// spaces) wraps within the page on a phone, in the served page's heading,
+// introduction and list of feeds and in the published index's, instead of
+// running off the right edge and scrolling the page sideways.
+func TestBrowserLongWordsWrap(t *testing.T) {
+	dir := t.TempDir()
+	cfg := filepath.Join(dir, "heliocal.yaml")
+	if err := os.WriteFile(cfg, []byte(longWords), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	out := filepath.Join(dir, "public")
+	if code, _, errOut := runCLI(t, "publish", "--quiet", "--config", cfg, "--out", out); code != 0 {
+		t.Fatalf("publish: exit %d: %s", code, errOut)
+	}
+	ts := builderServerFor(t, cfg)
+	ctx := browser(t)
+	for _, page := range []string{ts.URL + "/", "file://" + filepath.Join(out, "index.html")} {
+		for _, w := range []int64{390, 320} {
+			if err := chromedp.Do(ctx, chromedp.EmulateViewport(w, 800), chromedp.Navigate(page), chromedp.WaitVisible(chromedp.CSS("h1"))); err != nil {
+				t.Fatal(err)
+			}
+			problems, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](layoutProblems))
+			if err != nil {
+				t.Fatal(err)
+			}
+			if len(problems) > 0 {
+				t.Errorf("%s at %d px: %s", page, w, strings.Join(problems, "; "))
+			}
+		}
 	}
 }

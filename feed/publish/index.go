@@ -266,7 +266,7 @@ var indexTemplate = sync.OnceValue(func() *template.Template {
 <meta name="viewport" content="width=device-width, initial-scale=1"/>
 <title>{{.Title}}</title>
 <style>
-body{font:16px/1.45 system-ui,sans-serif;margin:0 auto;max-width:52rem;padding:1rem;color:#1d2030;background:#fbfaf6}
+body{font:16px/1.45 system-ui,sans-serif;margin:0 auto;max-width:52rem;padding:1rem;color:#1d2030;background:#fbfaf6;overflow-wrap:break-word}
 h1{font-size:1.6rem;margin:.2rem 0}
 h2{font-size:1.25rem;margin:2rem 0 .2rem;border-top:1px solid #ddd;padding-top:1rem}
 .place{color:#555;margin:.2rem 0 .8rem}

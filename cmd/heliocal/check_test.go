@@ -94,8 +94,8 @@ func TestCheckJSON(t *testing.T) {
 	// The same figures as the text form.
 	_, text, _ := runCLI(t, "check")
 	for _, f := range r.Feeds {
-		if !strings.Contains(text, f.ID) || !strings.Contains(text, " "+size(f.Bytes)) {
-			t.Errorf("feed %s (%s) not in the text form", f.ID, size(f.Bytes))
+		if !strings.Contains(text, f.ID) || !strings.Contains(text, " "+f.size()) {
+			t.Errorf("feed %s (%s) not in the text form", f.ID, f.size())
 		}
 	}
 	// Each site's horizon: one altitude, or the skyline (config/demo.yaml).

@@ -121,6 +121,9 @@ type checkFeed struct {
 	// shown are the kinds as the text table writes them: with a kinds
 	// entry's offset ("sunrise-30m"), so two sunrise entries read apart
 	shown []string
+	// limit is service.max_feed_bytes, which the text table's size of an
+	// Oversize feed is told apart from, as its warning or note tells it
+	limit int
 }
 
 // writeCheckJSON prints a report, indented, on standard output.
@@ -279,7 +282,7 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		r.Notes = append(r.Notes, later...)
 		// encoded as publish and serve encode it, under service.oversize:
 		// as it is, shortened, or refused
-		cf := checkFeed{ID: f.ID, Site: f.Site, Kinds: kinds, Plans: len(f.Plans), DaysBack: f.DaysBack, DaysAhead: f.DaysAhead, shown: shown}
+		cf := checkFeed{ID: f.ID, Site: f.Site, Kinds: kinds, Plans: len(f.Plans), DaysBack: f.DaysBack, DaysAhead: f.DaysAhead, shown: shown, limit: limit}
 		whole := len(cal.Entries)
 		data, err := publish.Encode(cal, &opts)
 		cf.Events = len(cal.Entries) // as trim left them
@@ -340,7 +343,7 @@ func writeCheckText(g *globals, r *checkReport, zoneLines []string) error {
 		default:
 			kinds = append(kinds[:len(kinds):len(kinds)], fmt.Sprintf("%d plans", f.Plans))
 		}
-		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\n", f.ID, f.Site, strings.Join(kinds, ","), window(f.DaysBack, f.DaysAhead), feed.FormatCount(f.Events), size(f.Bytes))
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\n", f.ID, f.Site, strings.Join(kinds, ","), window(f.DaysBack, f.DaysAhead), feed.FormatCount(f.Events), f.size())
 	}
 	tw.Flush()
 	for _, n := range r.Notes {
@@ -353,8 +356,17 @@ func writeCheckText(g *globals, r *checkReport, zoneLines []string) error {
 	return err
 }
 
-// size writes a feed's size as every size heliocal reports.
-func size(n int) string { return publish.FormatBytes(int64(n)) }
+// size writes a feed's size as every size heliocal reports, and that of a
+// feed over max_feed_bytes (shortened or refused for it) with the decimals
+// that tell it from the limit, as the feed's warning or note writes it:
+// "1.05 MB" over "1 MB", not "1.0 MB".
+func (f *checkFeed) size() string {
+	if f.Oversize && f.limit > 0 {
+		s, _ := publish.FormatBytesOver(int64(f.Bytes), int64(f.limit))
+		return s
+	}
+	return publish.FormatBytes(int64(f.Bytes))
+}
 
 // window writes a feed's window of days_back and days_ahead as the check
 // table shows it: "-30/+365 d", a side of none left out ("+365 d", "-30 d"),

@@ -364,3 +364,32 @@ func TestTrimRefusalsCountAlike(t *testing.T) {
 		}
 	}
 }
+
+// A feed a little over max_feed_bytes has the size in check's table that
+// its warning gives, with the decimals that tell it from the limit: the
+// table said "41.2 kB" of a feed whose warning said "41.23 kB, over … (41.2
+// kB)", a size that reads as the limit itself.
+func TestCheckTableSizeOverLimit(t *testing.T) {
+	code, out, errOut := runCLI(t, "check", "--format", "json", "--config", writeConfig(t, meadowOversize))
+	var r checkReport
+	if err := json.Unmarshal([]byte(out), &r); err != nil || len(r.Feeds) != 1 {
+		t.Fatalf("check --format json: exit %d, %v: %s%s", code, err, out, errOut)
+	}
+	// the limit 10 bytes under the feed: one decimal does not tell them apart
+	n := r.Feeds[0].Bytes
+	cfg := strings.Replace(meadowOversize, "max_feed_bytes: 20000", "max_feed_bytes: "+strconv.Itoa(n-10), 1)
+	_, out, errOut = runCLI(t, "check", "--config", writeConfig(t, cfg))
+	warned := regexp.MustCompile(`feed "meadow" is (\S+ kB), over service\.max_feed_bytes \((\S+ kB)\)`).FindStringSubmatch(errOut)
+	if warned == nil || warned[1] == warned[2] {
+		t.Fatalf("check warned %q, want the size and the limit told apart", errOut)
+	}
+	var row string
+	for _, l := range strings.Split(out, "\n") {
+		if strings.HasPrefix(l, "meadow ") {
+			row = l
+		}
+	}
+	if !strings.HasSuffix(row, "  "+warned[1]) {
+		t.Errorf("check's table row %q, want the size %s of the warning (over %s)", row, warned[1], warned[2])
+	}
+}

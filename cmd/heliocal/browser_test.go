@@ -810,3 +810,32 @@ func TestBrowserLongWordsWrap(t *testing.T) {
 		}
 	}
 }
+
+// The builder's preview says on which date the clocks change, before that
+// date's times, which shift with them, as the table page does: Havana's
+// clocks go from 00:00 to 01:00 on 14 March 2027 (zdump, tz database), and
+// no other date of the week says anything.
+func TestBrowserPreviewClockChange(t *testing.T) {
+	ts := builderServer(t)
+	ctx := browser(t)
+	if err := chromedp.Do(ctx,
+		chromedp.EmulateViewport(390, 844),
+		chromedp.Navigate(ts.URL+"/"),
+		chromedp.WaitVisible(chromedp.ID("lat")),
+		chromedp.SendKeys(chromedp.ID("lat"), "23.11"),
+		chromedp.SendKeys(chromedp.ID("lon"), "-82.41"),
+		chromedp.SetValue(chromedp.ID("start"), "2027-03-12"),
+		chromedp.Evaluate[chromedp.Void](`document.getElementById("builder").dispatchEvent(new Event("input"))`),
+		chromedp.Poll[chromedp.Void](`(() => { const th = document.querySelector("#preview th"); return th && th.textContent.includes("2027-03-12"); })()`),
+	); err != nil {
+		t.Fatal(err)
+	}
+	said, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](`[...document.querySelectorAll("#preview tr")].filter(tr => tr.querySelector(".clocks"))
+  .map(tr => tr.querySelector("th").textContent + ": " + tr.querySelector(".clocks").textContent + (tr.querySelector("td").firstChild.className === "clocks" ? "" : " (not first)"))`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if want := "Sun 2027-03-14: Clocks go forward for summer time by 1\u00a0h: 00:00 becomes 01:00"; len(said) != 1 || said[0] != want {
+		t.Errorf("the preview says of the clocks %q, want %q", said, want)
+	}
+}

@@ -214,8 +214,11 @@ type previewEntry struct {
 }
 
 type previewDay struct {
-	Date    string         `json:"date"` // YYYY-MM-DD, local
-	Weekday string         `json:"weekday"`
+	Date    string `json:"date"` // YYYY-MM-DD, local
+	Weekday string `json:"weekday"`
+	// Clocks says that the clocks change on this date, the times of its
+	// row shifting with them (clockChange); "" on the other dates.
+	Clocks  string         `json:"clocks,omitempty"`
 	Entries []previewEntry `json:"entries"`
 }
 
@@ -593,7 +596,7 @@ func days(cal *feed.Calendar, q AdhocQuery) []previewDay {
 	index := map[string]int{}
 	for i := range out {
 		d := q.Start.AddDate(0, 0, i)
-		out[i] = previewDay{Date: d.Format(time.DateOnly), Weekday: d.Format("Mon"), Entries: []previewEntry{}}
+		out[i] = previewDay{Date: d.Format(time.DateOnly), Weekday: d.Format("Mon"), Clocks: clockChange(d, loc), Entries: []previewEntry{}}
 		index[out[i].Date] = i
 	}
 	for _, e := range cal.Entries {
@@ -648,6 +651,50 @@ func days(cal *feed.Calendar, q AdhocQuery) []previewDay {
 		})
 	}
 	return out
+}
+
+// clockChange says how the clocks of loc change on the local date d (its
+// midnight in UTC, as the rows' dates are), "" when they do not: "Clocks go
+// forward for summer time by 1 h: 00:00 becomes 01:00" (America/Havana,
+// 14 March 2027), "Clocks go back from summer time by 1 h: 24:00 becomes
+// 23:00" (America/Santiago, 3 April 2027). A change belongs to the date
+// the clocks show after it, so a skipped midnight is said on the date that
+// then starts at 01:00; the time it is read at is the clock's before it,
+// 24:00 for the end of the row's own date.
+func clockChange(d time.Time, loc *time.Location) string {
+	row := d.Format(time.DateOnly)
+	y, m, day := d.Date()
+	noon := time.Date(y, m, day, 12, 0, 0, 0, loc)
+	var said []string
+	for t, to := noon.AddDate(0, 0, -1), noon.AddDate(0, 0, 1); ; {
+		_, tr := t.ZoneBounds()
+		if tr.IsZero() || !tr.Before(to) {
+			break
+		}
+		t = tr
+		_, before := tr.Add(-time.Second).Zone()
+		_, after := tr.Zone()
+		if before == after || tr.In(loc).Format(time.DateOnly) != row {
+			continue // a change of the zone's name alone, or of another date
+		}
+		old := tr.In(time.FixedZone("", before))
+		was := old.Format("15:04")
+		if was == "00:00" && old.Format(time.DateOnly) != row {
+			was = "24:00"
+		}
+		how := "forward"
+		by := time.Duration(after-before) * time.Second
+		switch {
+		case by < 0 && tr.Add(-time.Second).In(loc).IsDST():
+			how, by = "back from summer time", -by
+		case by < 0:
+			how, by = "back", -by
+		case tr.In(loc).IsDST():
+			how = "forward for summer time"
+		}
+		said = append(said, fmt.Sprintf("Clocks go %s by %s: %s becomes %s", how, feed.Amount(by), was, tr.In(loc).Format("15:04")))
+	}
+	return strings.Join(said, "; ")
 }
 
 // clockOn writes the local time t as "15:04", led by its weekday ("Mon

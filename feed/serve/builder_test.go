@@ -332,3 +332,53 @@ func TestHorizonFieldNamesAsTable(t *testing.T) {
 		}
 	}
 }
+
+// A date on which the clocks change says so in the preview and the table
+// page, whose times shift with them; the other dates say nothing. The
+// changes of 2027, as zdump (tz database) lists them: America/Havana from
+// 23:59:59 CST on 13 March to 01:00:00 CDT on the 14th, and from 00:59:59
+// CDT on 7 November to 00:00:00 CST; America/Santiago from 23:59:59 -03 on
+// 3 April to 23:00:00 -04 the same date, and from 23:59:59 -04 on
+// 4 September to 01:00:00 -03 on the 5th; Australia/Sydney from 02:59:59
+// AEDT on 4 April to 02:00:00 AEST, and from 01:59:59 AEST on 3 October to
+// 03:00:00 AEDT.
+func TestPreviewClockChange(t *testing.T) {
+	for _, tc := range []struct {
+		zone, start string
+		want        []string // the days' clocks from start
+	}{
+		{"America/Havana", "2027-03-13", []string{"", "Clocks go forward for summer time by 1 h: 00:00 becomes 01:00", ""}},
+		{"America/Havana", "2027-11-06", []string{"", "Clocks go back from summer time by 1 h: 01:00 becomes 00:00", ""}},
+		{"America/Santiago", "2027-04-02", []string{"", "Clocks go back from summer time by 1 h: 24:00 becomes 23:00", ""}},
+		{"America/Santiago", "2027-09-04", []string{"", "Clocks go forward for summer time by 1 h: 00:00 becomes 01:00", ""}},
+		{"Australia/Sydney", "2027-04-03", []string{"", "Clocks go back from summer time by 1 h: 03:00 becomes 02:00", ""}},
+		{"Australia/Sydney", "2027-10-02", []string{"", "Clocks go forward for summer time by 1 h: 02:00 becomes 03:00", ""}},
+		{"UTC", "2027-03-13", []string{"", "", ""}},
+	} {
+		loc, err := time.LoadLocation(tc.zone)
+		if err != nil {
+			t.Fatal(err)
+		}
+		start, _ := time.Parse(time.DateOnly, tc.start)
+		got := days(&feed.Calendar{}, AdhocQuery{Start: start, Days: len(tc.want), Location: loc})
+		for i, want := range tc.want {
+			if got[i].Clocks != want {
+				t.Errorf("%s, %s: clocks %q, want %q", tc.zone, got[i].Date, got[i].Clocks, want)
+			}
+		}
+	}
+	// the table page and the preview carry it
+	h := builderTestServer(t).Handler()
+	q := "lat=23.11&lon=-82.41&tz=America/Havana&kinds=sunset&days=2&start=2027-03-13"
+	if b := body(t, get(t, h, "GET", "/at?"+q)); strings.Count(b, `<p class="clocks">`) != 1 ||
+		!strings.Contains(b, `<p class="clocks">Clocks go forward for summer time by 1`+"\u00a0"+`h: 00:00 becomes 01:00</p>`) {
+		t.Errorf("the table page does not say the clocks change on 14 March 2027 once:\n%s", b)
+	}
+	var res previewResult
+	if err := json.Unmarshal([]byte(body(t, get(t, h, "GET", "/at.json?"+q))), &res); err != nil {
+		t.Fatal(err)
+	}
+	if len(res.Days) != 2 || res.Days[0].Clocks != "" || res.Days[1].Clocks != "Clocks go forward for summer time by 1 h: 00:00 becomes 01:00" {
+		t.Errorf("/at.json days %+v, want the clocks said on 2027-03-14 only", res.Days)
+	}
+}

@@ -116,7 +116,14 @@ function render(res) {
     th.append(day.weekday + " ", date);
     row.appendChild(th);
     const td = row.insertCell();
-    if (day.entries.length === 0) td.textContent = "—";
+    if (day.clocks) {
+      // the times of the row shift with the clocks: say so first
+      const p = document.createElement("p");
+      p.className = "clocks";
+      p.textContent = keepUnits(day.clocks);
+      td.appendChild(p);
+    }
+    if (day.entries.length === 0) td.append("—");
     const ul = document.createElement("ul");
     for (const e of day.entries) {
       const li = document.createElement("li");

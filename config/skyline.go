@@ -57,7 +57,8 @@ func (s *Site) resolveHorizon(path, dir string) []FieldError {
 			bad[i].Path, bad[i].Hint = path, hint
 		}
 		// a bad point is named by the file and its line, not its index
-		ps := s.setSkyline(path, pts, lines, func(line int) string { return fmt.Sprintf("line %d", line) }, nil, bad)
+		ps := s.setSkyline(skylinePoints{path: path, pts: pts, found: bad, places: lines,
+			name: func(line int) string { return fmt.Sprintf("line %d", line) }})
 		for i := range ps {
 			if ps[i].Path != path {
 				ps[i].Msg = ps[i].Path + ": " + ps[i].Value + ": " + ps[i].Msg
@@ -78,7 +79,8 @@ func (s *Site) resolveHorizon(path, dir string) []FieldError {
 			}
 			pts, at = append(pts, p), append(at, j)
 		}
-		return inOrder(s.setSkyline(path, pts, at, func(i int) string { return fmt.Sprintf("%s[%d]", path, i) }, nil, ps))
+		return inOrder(s.setSkyline(skylinePoints{path: path, pts: pts, found: ps, places: at,
+			name: func(i int) string { return fmt.Sprintf("%s[%d]", path, i) }}))
 	}
 	return []FieldError{{Path: path, Value: showValue(s.HorizonValue), Msg: "must be a number, a list of [azimuth, altitude] points or a CSV file name",
 		Hint: "e.g. horizon: 1.5, or horizon: [[0, 2.5], [90, 8]]"}}
@@ -136,39 +138,58 @@ func inOrder(ps []pointProblem) []FieldError {
 	return out
 }
 
-// setSkyline checks the points (azimuth 0..360, 360 being 0, distinct;
-// altitude within MinHorizon..MaxHorizon) and returns their problems after
-// found, those already found reading them (points that are not two
-// numbers). Without any it sorts the points and sets Skyline, with some it
-// clears Skyline. No point and some found is no skyline to check, not an
-// empty one. The problem of the point j is at its place, places[j] (its
-// index in a list, its line in a file), or j without places; its path is
-// name(place) ("line 4" of a file), and its value the point as "[azimuth,
-// altitude]", or, with show, show(j) (the point as the user wrote it).
-func (s *Site) setSkyline(path string, pts [][2]float64, places []int, name func(place int) string, show func(j int) string, found []pointProblem) []pointProblem {
-	if len(pts) == 0 {
-		s.Skyline = nil
-		if len(found) > 0 {
-			return found
-		}
-		return []pointProblem{{at: -1, FieldError: FieldError{Path: path, Value: "[]", Msg: "an empty skyline", Hint: "give at least one [azimuth, altitude] point, or a number"}}}
+// skylinePoints are the points of a skyline as read, with what their
+// problems need: where each was written and how to name it.
+type skylinePoints struct {
+	path  string         // the horizon's path ("sites[0].horizon", "--horizon")
+	pts   [][2]float64   // the points, [azimuth, altitude]
+	found []pointProblem // the problems already found reading them (points that are not two numbers)
+	// places are the place of each point in what the user wrote (its
+	// index in a list, its line in a file); nil: its index in pts.
+	places []int
+	// name is the path of the point at a place ("line 4" of a file).
+	name func(place int) string
+	// show, when not nil, is the point j as the user wrote it, the value
+	// of its problems; nil: "[azimuth, altitude]".
+	show func(j int) string
+}
+
+// placeOf is the place of the point j in what the user wrote.
+func (sp *skylinePoints) placeOf(j int) int {
+	if sp.places != nil {
+		return sp.places[j]
 	}
-	placeOf := func(j int) int {
-		if places != nil {
-			return places[j]
+	return j
+}
+
+// value is the point j as its problems show it.
+func (sp *skylinePoints) value(j int) string {
+	if sp.show != nil {
+		return sp.show(j)
+	}
+	return fmt.Sprintf("[%s, %s]", ftoa(sp.pts[j][0]), ftoa(sp.pts[j][1]))
+}
+
+// setSkyline checks the points of sp (azimuth 0..360, 360 being 0,
+// distinct; altitude within MinHorizon..MaxHorizon) and returns their
+// problems after those found reading them. Without any it sorts the points
+// and sets Skyline, with some it clears Skyline. No point and some found is
+// no skyline to check, not an empty one. The problem of the point j is at
+// its place, with the path name(place) and the point as value (see
+// skylinePoints).
+func (s *Site) setSkyline(sp skylinePoints) []pointProblem {
+	if len(sp.pts) == 0 {
+		s.Skyline = nil
+		if len(sp.found) > 0 {
+			return sp.found
 		}
-		return j
+		return []pointProblem{{at: -1, FieldError: FieldError{Path: sp.path, Value: "[]", Msg: "an empty skyline", Hint: "give at least one [azimuth, altitude] point, or a number"}}}
 	}
 	seen := map[float64]int{}
-	ps := found
-	for j, p := range pts {
-		place, value := placeOf(j), ""
-		at := name(place)
-		if show != nil {
-			value = show(j)
-		} else {
-			value = fmt.Sprintf("[%s, %s]", ftoa(p[0]), ftoa(p[1]))
-		}
+	ps := sp.found
+	for j, p := range sp.pts {
+		place := sp.placeOf(j)
+		at, value := sp.name(place), sp.value(j)
 		if !(p[0] >= 0 && p[0] <= 360) {
 			ps = append(ps, pointProblem{place, FieldError{Path: at, Value: value, Msg: "azimuth must be within 0..360", Hint: "degrees from the north through the east: 90 is east, 180 south"}})
 			continue
@@ -182,7 +203,7 @@ func (s *Site) setSkyline(path string, pts [][2]float64, places []int, name func
 			az = 0
 		}
 		if k, dup := seen[az]; dup {
-			msg := fmt.Sprintf("azimuth %s given twice, also at %s", ftoa(az), name(placeOf(k)))
+			msg := fmt.Sprintf("azimuth %s given twice, also at %s", ftoa(az), sp.name(sp.placeOf(k)))
 			if az == 0 {
 				msg += ": 0 and 360 are the same" // north, written both ways
 			}
@@ -190,14 +211,14 @@ func (s *Site) setSkyline(path string, pts [][2]float64, places []int, name func
 			continue
 		}
 		seen[az] = j
-		pts[j][0] = az
+		sp.pts[j][0] = az
 	}
 	if len(ps) > 0 {
 		s.Skyline = nil
 		return ps
 	}
-	sort.Slice(pts, func(i, j int) bool { return pts[i][0] < pts[j][0] })
-	s.Skyline = pts
+	sort.Slice(sp.pts, func(i, j int) bool { return sp.pts[i][0] < sp.pts[j][0] })
+	s.Skyline = sp.pts
 	return nil
 }
 
@@ -348,7 +369,7 @@ func SkylineFromText(flag, v string, round func(float64) float64) ([][2]float64,
 		return nil, oneProblem(bad)
 	}
 	var s Site
-	if ps := inOrder(s.setSkyline(flag, pts, nil, point, written, nil)); len(ps) > 0 {
+	if ps := inOrder(s.setSkyline(skylinePoints{path: flag, pts: pts, name: point, show: written})); len(ps) > 0 {
 		for i := range ps {
 			if ps[i].Path != flag { // a point's problem
 				ps[i].Msg = ps[i].Path + " (" + ps[i].Value + "): " + ps[i].Msg

@@ -170,10 +170,10 @@ func checkOutDir(field, out string) error {
 
 // outDirFailed words err, a failed publish into out (given by field: --out
 // or service.out_dir), when the directory cannot be written: one the user may
-// not write to or create, or one on a read-only file system, is named with
-// the flag or key that gave it and a hint, not by the temporary file or lock
-// file the publish tried first ("open public/.farm-sun.ics.tmp-81…: permission
-// denied"). What the publish says of the files it left (the writer keeps
+// not write to or create, one on a read-only file system, or one in which
+// nothing can be created (/proc/1, for the superuser too), is named with the flag or key that gave it
+// and a hint, not by the temporary file or lock file the publish tried first
+// ("open public/.farm-sun.ics.tmp-81…: permission denied"). What the publish says of the files it left (the writer keeps
 // nothing half-written: "nothing was changed: …") follows. It stays a
 // run-time failure (exit 1): out was checked to be a directory, or to be one
 // that can be created, before (checkOutDir). Other errors are returned as
@@ -183,15 +183,18 @@ func outDirFailed(field, out string, err error) error {
 	if !errors.As(err, &pe) || !sameTree(pe.Path, out) {
 		return err
 	}
-	hint := "give a directory this user may write to, or change its permissions"
+	hint, what := "give a directory this user may write to, or change its permissions", "cannot write into it"
 	switch {
 	case errors.Is(pe.Err, fs.ErrPermission):
 	case errors.Is(pe.Err, syscall.EROFS):
 		hint = "give a directory on a file system that can be written"
+	case errors.Is(pe.Err, fs.ErrNotExist) && (pe.Op == "mkdir" || pe.Op == "open" && filepath.Dir(filepath.Clean(pe.Path)) == filepath.Clean(out)):
+		// a directory that exists but takes nothing new, as /proc/1 for
+		// the superuser: the system says what was to be created is missing
+		hint, what = "give a directory on an ordinary file system, where files can be created", "cannot create a file in it"
 	default:
 		return err
 	}
-	what := "cannot write into it"
 	if pe.Op == "mkdir" {
 		what = "cannot create it"
 	}

@@ -39,6 +39,12 @@ func TestOutDirFailedWords(t *testing.T) {
 		{"read-only file system", "--out", "/mnt/sky",
 			fmt.Errorf("publish: write farm-sun.ics: %w", pathErr("open", "/mnt/sky/.farm-sun.ics.tmp-1", syscall.EROFS)),
 			`--out: "/mnt/sky": cannot write into it (read-only file system; give a directory on a file system that can be written)`},
+		{"nothing can be created in it", "--out", "/proc/1",
+			fmt.Errorf("publish: write farm-sun.ics: %w", pathErr("open", "/proc/1/.farm-sun.ics.tmp-2115824124", syscall.ENOENT)),
+			`--out: "/proc/1": cannot create a file in it (no such file or directory; give a directory on an ordinary file system, where files can be created)`},
+		{"nor under it", "--out", "/proc/1/sky",
+			fmt.Errorf("publish: output directory: %w", pathErr("mkdir", "/proc/1/sky", syscall.ENOENT)),
+			`--out: "/proc/1/sky": cannot create it (no such file or directory; give a directory on an ordinary file system, where files can be created)`},
 		{"what was kept", "--out", "sky",
 			fmt.Errorf("%w; nothing was changed: the files published before are as they were",
 				fmt.Errorf("publish: replace %s: %w", filepath.Join("sky", "farm-sun.ics"), pathErr("rename", filepath.Join("sky", "farm-sun.ics"), syscall.EPERM))),
@@ -57,10 +63,12 @@ func TestOutDirFailedWords(t *testing.T) {
 			}
 		})
 	}
-	// a full disk, or a file outside the directory, is said as it was
+	// a full disk, a file outside the directory, or a missing file below
+	// it, is said as it was
 	for _, err := range []error{
 		fmt.Errorf("publish: write farm-sun.ics: %w", pathErr("write", filepath.Join("sky", ".farm-sun.ics.tmp-1"), syscall.ENOSPC)),
 		fmt.Errorf("publish: %w", pathErr("open", filepath.Join("elsewhere", "x"), syscall.EACCES)),
+		fmt.Errorf("publish: %w", pathErr("open", filepath.Join("sky", "sub", "x"), syscall.ENOENT)),
 	} {
 		if got := outDirFailed("--out", "sky", err); got != err {
 			t.Errorf("%v worded again as %v", err, got)
@@ -95,5 +103,19 @@ func TestPublishUnwritableOutDir(t *testing.T) {
 	}
 	if left, err := os.ReadDir(ro); err != nil || len(left) != 0 {
 		t.Errorf("the directory holds %v (%v), want it as it was, empty", left, err)
+	}
+}
+
+// A directory that exists but in which nothing can be created, /proc/1 on
+// Linux (the superuser gets "no such file or directory" for a new file
+// there, another user "permission denied"), is named with the flag, not by
+// the temporary file the publish tried to create.
+func TestPublishProcOutDir(t *testing.T) {
+	if fi, err := os.Stat("/proc/1"); err != nil || !fi.IsDir() {
+		t.Skip("no /proc/1 directory on this system")
+	}
+	code, _, errOut := runCLI(t, "publish", "--quiet", "--out", "/proc/1")
+	if want := `heliocal: --out: "/proc/1": cannot `; code != exitFailure || !strings.HasPrefix(errOut, want) || strings.Contains(errOut, ".tmp-") {
+		t.Errorf("exit %d, %q; want %d and a message starting %q, without the temporary file", code, errOut, exitFailure, want)
 	}
 }

@@ -458,9 +458,10 @@ func chartTitle(siteName string, first, last time.Time, lamps, dark bool) string
 		first.Format("2 Jan 2006"), last.Format("2 Jan 2006"))
 }
 
-// chartSummary says in words what the chart shows: the shortest and the
-// longest daylight, and how many days the Sun stays up or down all day,
-// over days (the chart's dates from today).
+// chartSummary says in words what the chart shows: the shortest daylight
+// (unless the Sun stays down all day then) and the longest, and how many
+// days the Sun stays up or down all day, over days (the chart's dates from
+// today).
 func chartSummary(days []ChartDay) string {
 	lo, hi := 0, 0
 	polarDay, polarNight := 0, 0
@@ -478,14 +479,20 @@ func chartSummary(days []ChartDay) string {
 			polarNight++
 		}
 	}
-	s := fmt.Sprintf("Daylight from %s (%s) to %s (%s).",
-		formatLength(days[lo].Daylight), days[lo].Date.Format("2 Jan"),
-		formatLength(days[hi].Daylight), days[hi].Date.Format("2 Jan"))
+	longest := fmt.Sprintf("%s (%s)", formatLength(days[hi].Daylight), days[hi].Date.Format("2 Jan"))
+	// a shortest day of polar night is no "0 min" of daylight: the days the
+	// Sun stays down are counted below instead
+	s := "Daylight up to " + longest + "."
+	if clipHours(days[lo].Daylight) > 0 {
+		s = fmt.Sprintf("Daylight from %s (%s) to %s.", formatLength(days[lo].Daylight), days[lo].Date.Format("2 Jan"), longest)
+	}
+	sun := "The Sun"
 	if polarDay > 0 {
 		s += fmt.Sprintf(" The Sun stays up all day on %d %s.", polarDay, plural(polarDay, "day", "days"))
+		sun = "It"
 	}
 	if polarNight > 0 {
-		s += fmt.Sprintf(" It stays down all day on %d %s.", polarNight, plural(polarNight, "day", "days"))
+		s += fmt.Sprintf(" %s stays down all day on %d %s.", sun, polarNight, plural(polarNight, "day", "days"))
 	}
 	return s
 }

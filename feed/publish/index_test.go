@@ -595,6 +595,32 @@ func TestChartSummaryFromToday(t *testing.T) {
 	}
 }
 
+// A year whose shortest days are polar night has no "0 min" of daylight:
+// the caption gives the longest daylight and counts the days the Sun stays
+// down, as it counts the days it stays up; with no day of midnight Sun
+// before them, the Sun is named in that sentence.
+func TestChartSummaryPolarNight(t *testing.T) {
+	first := time.Date(2027, 1, 10, 0, 0, 0, 0, time.UTC)
+	var days []ChartDay
+	for i := range 10 {
+		d := ChartDay{Date: first.AddDate(0, 0, i), Daylight: time.Duration(i) * time.Hour}
+		if i < 3 {
+			d.Daylight = 0
+		}
+		days = append(days, d)
+	}
+	v := chart("ice", "Ice camp", &SiteChart{Days: days, Today: first})
+	if want := "Daylight up to 9 h (19 Jan). The Sun stays down all day on 3 days."; !strings.HasPrefix(v.Summary, want) {
+		t.Errorf("summary %q: want it to start %q", v.Summary, want)
+	}
+	// a year of midnight Sun and polar night both
+	days[9].Daylight = 24 * time.Hour
+	v = chart("ice", "Ice camp", &SiteChart{Days: days, Today: first})
+	if want := "Daylight up to 24 h (19 Jan). The Sun stays up all day on 1 day. It stays down all day on 3 days."; !strings.HasPrefix(v.Summary, want) {
+		t.Errorf("summary %q: want it to start %q", v.Summary, want)
+	}
+}
+
 // The header's date is the build's UTC date and each chart's today is its
 // site's local date; near midnight they differ by a day, so the page says
 // whose each is. At 23:23 UTC on 4 December 2015 it is 5 December in

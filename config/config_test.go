@@ -699,6 +699,34 @@ func TestLoadErrors(t *testing.T) {
 			t.Errorf("%q: %v", start, err)
 		}
 	}
+	// A %YAML directive of version 1.2 (YAML 1.2.2, section 6.8.1) or 1.1
+	// is read, the decoder taking 1.1 alone; a problem after it keeps its
+	// line. Another version, or directives without the start marker ---
+	// after them, are said with their line, not in the decoder's words
+	// ("found incompatible YAML document", "did not find expected <document
+	// start>").
+	body := "sites:\n  - {id: x, latitude: 1, longitude: 2, timezone: UTC}\nfeeds:\n  - {id: f, site: x, kinds: [sunrise]}\n"
+	for _, head := range []string{"%YAML 1.2\n---\n", "%YAML 1.1\n---\n", "# farm\n%YAML 1.2 # version\n\n--- # start\n",
+		"\ufeff%YAML 1.2\n---\n", "%TAG !f! tag:example.org,2026:\n%YAML 1.2\n---\n"} {
+		if c, err := Parse(strings.NewReader(head+body), "yaml"); err != nil || len(c.Feeds) != 1 {
+			t.Errorf("%q: %v", head, err)
+		}
+	}
+	if _, err := Parse(strings.NewReader("%YAML 1.2\n---\nsites:\n  - id: x\n\tlatitude: 1\n"), "yaml"); err == nil ||
+		!strings.HasSuffix(err.Error(), "yaml: line 5: a tab in the indentation (YAML indents with spaces only)") {
+		t.Errorf("%%YAML 1.2 and a tab on line 5: %v", err)
+	}
+	for head, want := range map[string]string{
+		"%YAML 2.0\n---\n":         "line 1: %YAML 2.0: a version of YAML heliocal does not read (it reads 1.1 and 1.2: write %YAML 1.2, or remove the line)",
+		"# farm\n%YAML 1.3\n---\n": "line 2: %YAML 1.3: a version of YAML heliocal does not read (it reads 1.1 and 1.2: write %YAML 1.2, or remove the line)",
+		"%YAML # 1.2\n---\n":       "line 1: %YAML without a version (heliocal reads YAML 1.1 and 1.2: write %YAML 1.2, or remove the line)",
+		"%YAML 1.2\n\n":            "line 1: the directive %YAML 1.2 is not followed by ---, the start of the document (add a line --- before line 3, or remove the directive)",
+	} {
+		_, err = Parse(strings.NewReader(head+body), "yaml")
+		if want = "cannot read the file as yaml: " + want; !errors.Is(err, ErrUnreadable) || err.Error() != want {
+			t.Errorf("%q: %v\nwant %s", head, err, want)
+		}
+	}
 	// A tab in YAML's indentation is named with its own line: the decoder
 	// says "line 2" of the tab on line 3 below, and of the one on line 2 only
 	// that a character cannot start a token.

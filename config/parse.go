@@ -13,6 +13,7 @@ import (
 	"path/filepath"
 	"reflect"
 	"regexp"
+	"slices"
 	"strconv"
 	"strings"
 	"sync"
@@ -119,6 +120,9 @@ func parseFrom(r io.Reader, format string, env LookupEnv, dir string) (*Config, 
 // working directory: standard input, the demo).
 func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, err error) {
 	if format == "yaml" {
+		if data, err = yamlVersion(data); err != nil {
+			return nil, err
+		}
 		if line, end := secondDocument(data); end > 0 {
 			return nil, fmt.Errorf("%w as yaml: line %d: a second document begins here, after the end marker ... of line %d, and heliocal reads one (write every site and feed under one sites: and one feeds:, without ...)", ErrUnreadable, line, end)
 		} else if line > 0 {
@@ -221,6 +225,63 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		return nil, newValidationError(problems)
 	}
 	return c, nil
+}
+
+// yamlVersion reads the directives of data, the lines starting with "%"
+// before its first content. The decoder takes "%YAML 1.1" alone, and
+// refuses "%YAML 1.2", the version of most files that declare one, with its
+// bare "found incompatible YAML document"; yet it reads every document
+// alike, by YAML 1.2's rules for the most part, whatever version the
+// document declares. A 1.2 document is therefore read as one without the
+// directive: data comes back with its version written 1.1, in as many
+// bytes, so that the lines and columns of other messages stay right.
+// Another version (or none), or directives not followed by the document
+// marker "---" (which the decoder reports as a key out of place), is an
+// error naming the line.
+func yamlVersion(data []byte) ([]byte, error) {
+	out := data
+	n, end := 0, 0 // the line, and the offset of its end
+	last, at := "", 0 // the last directive, as written, and its line
+	for l := range bytes.Lines(data) {
+		n, end = n+1, end+len(l)
+		t := bytes.TrimRight(l, "\r\n")
+		if n == 1 {
+			t = bytes.TrimPrefix(t, []byte("\ufeff")) // a byte order mark
+		}
+		switch {
+		case len(bytes.TrimSpace(t)) == 0 || t[0] == '#':
+			continue
+		case t[0] != '%' && last != "" && !docMarker(t, "---"):
+			return nil, fmt.Errorf("%w as yaml: line %d: the directive %s is not followed by ---, the start of the document (add a line --- before line %d, or remove the directive)", ErrUnreadable, at, last, n)
+		case t[0] != '%':
+			return out, nil
+		}
+		fields := strings.Fields(string(t))
+		if i := slices.IndexFunc(fields, func(f string) bool { return f[0] == '#' }); i > 0 {
+			fields = fields[:i] // a comment after the directive
+		}
+		last, at = strings.Join(fields, " "), n
+		if fields[0] != "%YAML" {
+			continue // %TAG, or a directive the decoder ignores
+		}
+		version := ""
+		if len(fields) > 1 {
+			version = fields[1]
+		}
+		switch major, minor, _ := strings.Cut(version, "."); {
+		case major == "1" && minor == "1":
+		case major == "1" && minor == "2":
+			out = bytes.Clone(data)
+			i := end - len(l) + bytes.Index(l, []byte("%YAML")) + len("%YAML")
+			i += bytes.Index(out[i:], []byte(version))
+			out[i+len(version)-1] = '1' // "1.2" read as the decoder's "1.1"
+		case version == "":
+			return nil, fmt.Errorf("%w as yaml: line %d: %%YAML without a version (heliocal reads YAML 1.1 and 1.2: write %%YAML 1.2, or remove the line)", ErrUnreadable, n)
+		default:
+			return nil, fmt.Errorf("%w as yaml: line %d: %%YAML %s: a version of YAML heliocal does not read (it reads 1.1 and 1.2: write %%YAML 1.2, or remove the line)", ErrUnreadable, n, version)
+		}
+	}
+	return out, nil
 }
 
 // secondDocument returns the line where a second YAML document with content

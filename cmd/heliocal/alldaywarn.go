@@ -16,13 +16,12 @@ import (
 // all_day: true) or on a plan without a start, all-day too, for a calendar
 // sets no reminder before an all-day entry (see ical's entryAlarm); and
 // all_day: true on a kind whose entries are all-day already; and the
-// feed's own alarm when none of its entries is timed. shown are the kinds
-// entries as check's table writes them.
+// feed's own alarm when it gives no reminder (feedAlarmWarning). shown are
+// the kinds entries as check's table writes them.
 func allDayWarnings(f *config.Feed, shown []string) []string {
 	var out []string
-	if f.Alarm.D() > 0 && len(f.Kinds)+len(f.Plans) > 0 && !hasTimedEntries(f) {
-		out = append(out, fmt.Sprintf("feed %q: alarm %s gives no reminder: every entry of the feed is all-day, and reminders are set before timed entries only",
-			f.ID, f.Alarm))
+	if w := feedAlarmWarning(f, shown); w != "" {
+		out = append(out, w)
 	}
 	for i, k := range f.Kinds {
 		if !entriesAllDay(k) {
@@ -49,21 +48,49 @@ func allDayWarnings(f *config.Feed, shown []string) []string {
 	return out
 }
 
-// hasTimedEntries reports whether feed f has a kinds entry or a plan
-// whose entries are timed: a kind that is not all-day nor shown all day,
-// or a plan with a start.
-func hasTimedEntries(f *config.Feed) bool {
-	for _, k := range f.Kinds {
-		if !entriesAllDay(k) {
+// feedAlarmWarning words the alarm of feed f when it sets no reminder at
+// all, though the feed has entries: none of them is timed (a reminder is
+// set before a timed entry only), or each kinds entry and plan whose
+// entries are timed turns it off with alarm: 0s. Someone who wrote the
+// feed's alarm expects reminders; timed entries that set alarms of their
+// own give them, and no warning. "" when there is nothing to warn of.
+// shown are the kinds entries as check's table writes them.
+func feedAlarmWarning(f *config.Feed, shown []string) string {
+	if f.Alarm.D() <= 0 || len(f.Kinds)+len(f.Plans) == 0 {
+		return ""
+	}
+	var off []string // the timed entries that turn it off, as check names them
+	remind := func(a *config.Duration, name string) bool {
+		if a == nil || a.D() > 0 { // the feed's alarm, or one of its own
 			return true
+		}
+		off = append(off, name)
+		return false
+	}
+	for i, k := range f.Kinds {
+		if !entriesAllDay(k) && remind(k.Alarm, shown[i]) {
+			return ""
 		}
 	}
 	for _, p := range f.Plans {
-		if p.Start != "" {
-			return true
+		if p.Start != "" && remind(p.Alarm, fmt.Sprintf("plan %q", p.Title)) {
+			return ""
 		}
 	}
-	return false
+	if len(off) == 0 {
+		return fmt.Sprintf("feed %q: alarm %s gives no reminder: every entry of the feed is all-day, and reminders are set before timed entries only",
+			f.ID, f.Alarm)
+	}
+	verb := "turns"
+	if len(off) > 1 {
+		verb = "turn"
+	}
+	rest := ""
+	if len(off) < len(f.Kinds)+len(f.Plans) {
+		rest = ", and the feed's other entries are all-day, which take no reminder"
+	}
+	return fmt.Sprintf("feed %q: alarm %s gives no reminder: %s %s it off with alarm: 0s%s",
+		f.ID, f.Alarm, feed.AndList(off), verb, rest)
 }
 
 // entriesAllDay reports whether the entries of kinds entry k are all-day:

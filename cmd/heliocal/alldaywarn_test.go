@@ -58,7 +58,10 @@ func TestAllDayWarnings(t *testing.T) {
 
 // allDayOnlyFeed has a feed-level alarm and entries all-day only: a kind
 // all-day by itself, one shown all day, and a plan without start; the
-// second feed has the same alarm and one timed kind (sunset).
+// second feed has the same alarm and one timed kind (sunset). The others
+// have timed entries that turn the feed's alarm off with "0s": the one
+// timed kind beside an all-day one, a kind and a plan, and, without a
+// warning, a kind beside one with an alarm of its own.
 const allDayOnlyFeed = `sites:
   - {id: farm, latitude: 47.07, longitude: 8.3, timezone: Europe/Zurich}
 feeds:
@@ -76,14 +79,36 @@ feeds:
     kinds:
       - daily-summary
       - sunset
+  - id: farm-quiet
+    site: farm
+    alarm: 30m
+    kinds:
+      - daily-summary
+      - {kind: sunset, alarm: 0s}
+  - id: farm-vents
+    site: farm
+    alarm: 15m
+    kinds:
+      - {kind: sunrise, alarm: 0s}
+    plans:
+      - {title: Vents, date: every day, start: sunrise, alarm: 0s}
+  - id: farm-own
+    site: farm
+    alarm: 30m
+    kinds:
+      - {kind: sunset, alarm: 0s}
+      - {kind: sunrise, alarm: 1h}
 `
 
-// check warns of a feed's alarm when none of its entries is timed, and
-// not when one kind of the feed gives timed entries.
+// check warns of a feed's alarm when none of its entries is timed, or
+// when each timed one turns it off, and not when one kind of the feed
+// gives timed entries with a reminder.
 func TestFeedAlarmAllDayWarning(t *testing.T) {
 	r := checkReportOf(t, allDayOnlyFeed, allDayNow)
 	want := []string{
 		`feed "farm-days": alarm 30m gives no reminder: every entry of the feed is all-day, and reminders are set before timed entries only`,
+		`feed "farm-quiet": alarm 30m gives no reminder: sunset turns it off with alarm: 0s, and the feed's other entries are all-day, which take no reminder`,
+		`feed "farm-vents": alarm 15m gives no reminder: sunrise and plan "Vents" turn it off with alarm: 0s`,
 	}
 	wantWarnings(t, r.Warnings, want)
 }

@@ -240,7 +240,7 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 // error naming the line.
 func yamlVersion(data []byte) ([]byte, error) {
 	out := data
-	n, end := 0, 0 // the line, and the offset of its end
+	n, end := 0, 0    // the line, and the offset of its end
 	last, at := "", 0 // the last directive, as written, and its line
 	for l := range bytes.Lines(data) {
 		n, end = n+1, end+len(l)
@@ -1504,6 +1504,8 @@ func numberTextHint(key, x string) string {
 		return "write " + LatitudeText
 	case key == "longitude":
 		return "write " + LongitudeText
+	case key == "max_illumination":
+		return IlluminationHint(x)
 	case key == "max_feed_bytes":
 		if mul, ok := byteUnits[unit]; ok && err == nil {
 			return fmt.Sprintf("write the number of bytes: %.0f", f*mul) // 1000000 for "1MB"
@@ -1513,8 +1515,6 @@ func numberTextHint(key, x string) string {
 		return numberWords[key] // "high" for high
 	case key == "temperature_c" && (unit == "f" || unit == "°f"):
 		return fahrenheitHint(f, num)
-	case key == "max_illumination" && unit == "%":
-		return "write a fraction of 1: " + strconv.FormatFloat(f/100, 'g', -1, 64) + " for " + num + " %"
 	}
 	for _, u := range numberUnits[key] {
 		if unit == u {
@@ -1537,12 +1537,31 @@ const (
 
 // numberWords say what the number of a key is, for text that holds none.
 var numberWords = map[string]string{
-	"elevation":        "metres above sea level, e.g. 120",
-	"pressure_hpa":     "the air pressure at the site in hPa, e.g. 1013",
-	"temperature_c":    "degrees Celsius, e.g. -5",
-	"low":              "the Sun's altitude in degrees, e.g. -4",
-	"high":             "the Sun's altitude in degrees, e.g. 6",
-	"max_illumination": "the Moon's illuminated fraction, e.g. 0.25",
+	"elevation":     "metres above sea level, e.g. 120",
+	"pressure_hpa":  "the air pressure at the site in hPa, e.g. 1013",
+	"temperature_c": "degrees Celsius, e.g. -5",
+	"low":           "the Sun's altitude in degrees, e.g. -4",
+	"high":          "the Sun's altitude in degrees, e.g. 6",
+}
+
+// IlluminationText says what a max_illumination (--max-illumination) is.
+const IlluminationText = "the Moon's illuminated fraction, e.g. 0.25 for a quarter lit"
+
+// IlluminationHint is the hint of a max_illumination (--max-illumination)
+// written x, a number out of 0..1 or text that is no number: for a
+// percentage ("30", "30%", "30 %"), the fraction it means, "write a
+// fraction of 1: 0.3 for 30 %"; for anything else, IlluminationText.
+func IlluminationHint(x string) string {
+	x = strings.TrimSpace(x)
+	n := len(x) - len(strings.TrimLeft(x, "+-.0123456789"))
+	num, unit := x[:n], strings.TrimSpace(x[n:])
+	f, err := strconv.ParseFloat(num, 64)
+	// 30 is no fraction of 1, and taken for a percentage as 30 % is
+	percent := err == nil && (unit == "%" && f >= 0 && f <= 100 || unit == "" && f > 1 && f <= 100)
+	if !percent {
+		return IlluminationText
+	}
+	return "write a fraction of 1: " + strconv.FormatFloat(f/100, 'g', -1, 64) + " for " + num + " %"
 }
 
 // nameHint says how to write a value that is not text where key holds

@@ -610,7 +610,7 @@ func (ks *KindSpec) validate(ps *problems, p string) {
 	mi := ks.MaxIllumination
 	switch {
 	case math.IsNaN(mi) || mi < 0 || mi > 1:
-		ps.add(p+".max_illumination", ftoa(mi), "must be within 0..1", "the Moon's illuminated fraction, e.g. 0.25 for a thin crescent")
+		ps.add(p+".max_illumination", ftoa(mi), "must be within 0..1", IlluminationHint(ftoa(mi)))
 	case mi != 0 && ks.Kind.Name != "dark-window":
 		ps.add(p+".max_illumination", ftoa(mi), "applies only to dark-window", "remove it, or use kind: dark-window")
 	}

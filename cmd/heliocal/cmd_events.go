@@ -133,11 +133,7 @@ func checkEventsFlags(o *eventsOptions) error {
 		return badInput("--format: %q: use table, json, csv or ics", o.format)
 	}
 	if math.IsNaN(o.maxLit) || o.maxLit < 0 || o.maxLit > 1 {
-		hint := flagHints["max-illumination"]
-		if o.maxLit > 1 && o.maxLit <= 100 {
-			hint = fmt.Sprintf("a fraction of 1: %g for %g %%", o.maxLit/100, o.maxLit) // 30 meant as a percentage
-		}
-		return badInput("--max-illumination: %v: must be within 0..1 (%s)", o.maxLit, hint)
+		return badInput("--max-illumination: %v: must be within 0..1 (%s)", o.maxLit, config.IlluminationHint(strconv.FormatFloat(o.maxLit, 'g', -1, 64)))
 	}
 	if o.feed == "" || o.kindsSet { // runEvents parses them again, after the place and its zone note
 		if _, err := parseKinds(o.kinds); err != nil {

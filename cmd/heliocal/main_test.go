@@ -224,7 +224,7 @@ func TestEventsBadInput(t *testing.T) {
 		{"elevation in feet", []string{"events", "--lat", "0", "--lon", "0", "--elev", "29000"}, `--elev: 29000: must be within -500..9000 metres (metres above sea level, not feet: write 8839 for 29000 ft)`}, // 29000 × 0.3048 m = 8839.2 m (the international foot, 0.3048 m exactly: NIST SP 811, appendix B)
 		{"latitude out of range", []string{"events", "--lat", "95", "--lon", "0"}, `--lat: 95: must be within -90..90 degrees (north positive, e.g. 47.07)`},
 		{"temperature in Fahrenheit", []string{"events", "--lat", "0", "--lon", "0", "--temperature", "80"}, `(degrees Celsius, not Fahrenheit: write 26.7 for 80 °F)`}, // (80 − 32) × 5/9 = 26.67 (°C from °F: NIST SP 811, appendix B)
-		{"illumination as a percentage", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "dark-window", "--max-illumination", "30"}, `--max-illumination: 30: must be within 0..1 (a fraction of 1: 0.3 for 30 %)`},
+		{"illumination as a percentage", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "dark-window", "--max-illumination", "30"}, `--max-illumination: 30: must be within 0..1 (write a fraction of 1: 0.3 for 30 %)`},
 		{"not a duration", []string{"publish", "--lock-wait", "5", "--out", "unused"}, `heliocal: --lock-wait: "5": not a duration`},
 		{"shard count", []string{"publish", "--shard", "0/10001", "--out", "unused"}, `--shard "0/10001": count must be at most 10000`},
 		{"out is a file", []string{"publish", "--out", "main_test.go"}, `heliocal: --out: "main_test.go": not a directory`},

@@ -285,7 +285,9 @@ func flagValueError(err error) error {
 	case "duration":
 		what = `not a duration (a number with a unit, e.g. "30s", "2m")`
 	}
-	if hint, ok := flagHints[iv.GetFlag().Name]; ok {
+	if iv.GetFlag().Name == "max-illumination" { // "30%" as well as words
+		what += " (" + config.IlluminationHint(iv.GetValue()) + ")"
+	} else if hint, ok := flagHints[iv.GetFlag().Name]; ok {
 		what += " (" + hint + ")"
 	}
 	return fmt.Errorf("--%s: %q: %s", iv.GetFlag().Name, iv.GetValue(), what)
@@ -294,10 +296,9 @@ func flagValueError(err error) error {
 // flagHints say how to write the value of a flag of a place, as the
 // configuration's hints say it for the site's keys.
 var flagHints = map[string]string{
-	"lat":              config.LatitudeText,
-	"lon":              config.LongitudeText,
-	"elev":             "metres above sea level, the number alone, e.g. 120",
-	"pressure":         "hPa, the number alone, e.g. 1013",
-	"temperature":      "degrees Celsius, the number alone, e.g. -5",
-	"max-illumination": "a fraction of 1, e.g. 0.25 for a quarter lit",
+	"lat":         config.LatitudeText,
+	"lon":         config.LongitudeText,
+	"elev":        "metres above sea level, the number alone, e.g. 120",
+	"pressure":    "hPa, the number alone, e.g. 1013",
+	"temperature": "degrees Celsius, the number alone, e.g. -5",
 }

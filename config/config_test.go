@@ -10,6 +10,7 @@ import (
 	"path/filepath"
 	"reflect"
 	"slices"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -142,6 +143,33 @@ func TestSkylineEveryBadPoint(t *testing.T) {
 	}
 }
 
+// A port alone where host:port belongs gets one hint, in the same words,
+// whether listen holds it as a number or as text: the port after a colon,
+// or, for a number that is no port, the ports there are (0..65535: TCP
+// ports are 16 bits, RFC 9293, section 3.1).
+func TestListenPortHintOnce(t *testing.T) {
+	hint := func(listen string) string {
+		t.Helper()
+		in := "service:\n  listen: " + listen + "\nsites:\n  - {id: x, latitude: 1, longitude: 2, timezone: UTC}\nfeeds:\n  - {id: f, site: x, kinds: [sunrise]}\n"
+		_, err := Parse(strings.NewReader(in), "yaml")
+		var ve *ValidationError
+		if !errors.As(err, &ve) || len(ve.Problems) != 1 {
+			t.Fatalf("listen: %s: %v, want one problem", listen, err)
+		}
+		return ve.Problems[0].Hint
+	}
+	for port, want := range map[string]string{
+		"8080":  `a port alone comes after a colon: write it ":8080"`,
+		"0":     `a port alone comes after a colon: write it ":0"`,
+		"70000": `a port is 0..65535, written after a colon, e.g. ":8080"`,
+		"-1":    `a port is 0..65535, written after a colon, e.g. ":8080"`,
+	} {
+		if number, text := hint(port), hint(strconv.Quote(port)); number != want || text != want {
+			t.Errorf("listen: %s: %q, and in quotes %q; want both %q", port, number, text, want)
+		}
+	}
+}
+
 // TestValidationErrors checks one file per problem: the error names the
 // field path and the offending value, and says what is wrong.
 func TestValidationErrors(t *testing.T) {
@@ -173,7 +201,7 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-temperature-fahrenheit.yaml", "sites[0].temperature_c", `"68F"`, "must be a number, not text", "not Fahrenheit: write 20 for 68 °F", 0}, // (68 − 32) × 5/9 = 20 (°C from °F: NIST SP 811, appendix B)
 		{"bad-pressure-text.yaml", "sites[0].pressure_hpa", `"1013 hPa"`, "must be a number", "without the unit: 1013", 0},
 		{"bad-elevation-unit.yaml", "sites[0].elevation", `"420 m"`, "must be a number, not text", "without the unit: 420", 0},
-		{"bad-latitude-dms.yaml", "sites[0].latitude", `"47°30′N"`, "must be a number, not text", "decimal degrees, south negative", 0},
+		{"bad-latitude-dms.yaml", "sites[0].latitude", `"47°30′N"`, "must be a number, not text", "write decimal degrees, north positive, south negative", 0},
 		{"bad-timezone.yaml", "sites[0].timezone", "Europe/Zurik", "unknown time zone", `"Europe/Zurich"`, 0},
 		{"missing-latitude.yaml", "sites[0].latitude", "", "is required", "degrees", 0},
 		// written without a value: missing, not 0°
@@ -221,7 +249,7 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-base-url.yaml", "service.base_url", "sky.example.org/calendars", "must be an absolute http or https URL", "", 0},
 		{"bad-base-url-scheme.yaml", "service.base_url", "ftp://sky.example.org/calendars", "must be an absolute http or https URL", "", 0},
 		{"bad-listen.yaml", "service.listen", "8080", "must be host:port", `a port alone comes after a colon: write it ":8080"`, 0},
-		{"bad-listen-number.yaml", "service.listen", "8080", "must be text, not a number", `write it ":8080"`, 0},
+		{"bad-listen-number.yaml", "service.listen", "8080", "must be text, not a number", `a port alone comes after a colon: write it ":8080"`, 0},
 		// TCP ports are 16 bits, 0..65535 (RFC 9293, section 3.1): "70000" in quotes is no port either
 		{"bad-listen-port-range.yaml", "service.listen", "70000", "must be text, not a number", `a port is 0..65535`, 0},
 		{"bad-max-feed-bytes.yaml", "service.max_feed_bytes", "-1", "must not be negative", "", 0},
@@ -860,7 +888,7 @@ func TestFahrenheitHint(t *testing.T) {
 		{"-40 °F", "write -40 for -40 °F"},
 		{"31.99F", "write 0 for 31.99 °F"},
 	} {
-		if got := numberTextHint("temperature_c", tc.written); !strings.HasSuffix(got, tc.want) {
+		if got := NumberTextHint("temperature_c", tc.written); !strings.HasSuffix(got, tc.want) {
 			t.Errorf("temperature_c %q: hint %q, want it to end %q", tc.written, got, tc.want)
 		}
 	}

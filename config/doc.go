@@ -8,7 +8,7 @@
 // validate it; every problem is reported at once in a *ValidationError whose
 // lines each name the field path and the offending value:
 //
-//	sites[2].latitude: 95: must be within -90..90 (degrees, north positive, e.g. 47.07)
+//	sites[2].latitude: 95: must be within -90..90 (decimal degrees, north positive, south negative, e.g. -42.88 for 42°52′48″S)
 //
 // The kind vocabulary (KindNames, ParseKind) is file syntax and lives here;
 // what each kind means is computed by package feed.

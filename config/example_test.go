@@ -37,7 +37,7 @@ feeds:
 `), "yaml")
 	fmt.Println(err)
 	// Output:
-	// sites[0].latitude: 95: must be within -90..90 (degrees, north positive, e.g. 47.07)
+	// sites[0].latitude: 95: must be within -90..90 (decimal degrees, north positive, south negative, e.g. -42.88 for 42°52′48″S)
 	// sites[0].timezone: Europe/Zurik: unknown time zone (did you mean "Europe/Zurich"?)
 	// feeds[0].site: north-feild: no site has this id (did you mean "north-field"?)
 	// feeds[0].kinds[0]: sunrize: unknown kind (did you mean "sunrise"?)

@@ -177,7 +177,7 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		for j, key := range [2]string{"latitude", "longitude"} {
 			if i < len(located) && !located[i][j] {
 				problems = append(problems, FieldError{Path: fmt.Sprintf("sites[%d].%s", i, key), Msg: "is required",
-					Hint: "degrees, north and east positive, e.g. latitude: 47.07, longitude: -3.2"})
+					Hint: coordinateText[key]})
 			}
 		}
 	}
@@ -1440,7 +1440,7 @@ func typeHint(path string, t reflect.Type, v any) string {
 		if _, err := strconv.ParseFloat(x, 64); err == nil {
 			return "write the number without quotes" // "47.5" where 47.5 belongs
 		}
-		return numberTextHint(key, x)
+		return NumberTextHint(key, x)
 	}
 	if x, ok := v.(string); ok && t.Kind() == reflect.Bool {
 		switch strings.ToLower(strings.TrimSpace(x)) {
@@ -1488,14 +1488,15 @@ var numberUnits = map[string][]string{
 // (SI, as max_feed_bytes' limit of 1 MB is 1000000 bytes).
 var byteUnits = map[string]float64{"b": 1, "bytes": 1, "kb": 1e3, "mb": 1e6}
 
-// numberTextHint says how to write, as a number, text that is not one
-// where key holds a number: the number alone when the text is a number and
+// NumberTextHint says how to write, as a number, text x that is not one
+// where the configuration's key holds a number (the flags and the ad-hoc
+// feeds' parameters of the same numbers give their hints from here too): the number alone when the text is a number and
 // the key's own unit ("write 120" for elevation "120m"), a fraction for a
 // percentage of max_illumination, Celsius for a temperature in Fahrenheit,
 // the bytes of a size in kB or MB, decimal degrees for a latitude or
 // longitude in degrees and minutes; for words ("lots"), which have no
 // number to keep, what the key's number is, or "".
-func numberTextHint(key, x string) string {
+func NumberTextHint(key, x string) string {
 	n := len(x) - len(strings.TrimLeft(x, "+-.0123456789"))
 	num, unit := x[:n], strings.ToLower(strings.TrimSpace(x[n:]))
 	f, err := strconv.ParseFloat(num, 64)
@@ -1528,12 +1529,16 @@ func numberTextHint(key, x string) string {
 }
 
 // LatitudeText and LongitudeText say how a latitude and a longitude are
-// written, for one given in degrees and minutes (a site's latitude and
-// longitude, --lat and --lon).
+// written, the hint of one out of range, missing, or given in degrees and
+// minutes: a site's latitude and longitude, --lat and --lon, and an ad-hoc
+// feed's lat and lon say it in these words.
 const (
-	LatitudeText  = "decimal degrees, south negative, e.g. -42.88 for 42°52′48″S"
-	LongitudeText = "decimal degrees, west negative, e.g. -72.26 for 72°15′36″W"
+	LatitudeText  = "decimal degrees, north positive, south negative, e.g. -42.88 for 42°52′48″S"
+	LongitudeText = "decimal degrees, east positive, west negative, e.g. -72.26 for 72°15′36″W"
 )
+
+// coordinateText is LatitudeText and LongitudeText by key.
+var coordinateText = map[string]string{"latitude": LatitudeText, "longitude": LongitudeText}
 
 // numberWords say what the number of a key is, for text that holds none.
 var numberWords = map[string]string{
@@ -1594,10 +1599,7 @@ func nameHint(key string, v any) string {
 	}
 	switch key {
 	case "listen":
-		if n >= 0 && n <= 65535 {
-			return fmt.Sprintf(`write it ":%d"`, n) // a port alone listens on every address
-		}
-		return `a port is 0..65535: write it in quotes after a colon, e.g. ":8080"` // not "70000" in quotes
+		return portAloneHint(n)
 	case "months":
 		return monthNumberHint(n, "write the month's name: jan, feb, mar, apr, may, jun, jul, aug, sep, oct, nov or dec")
 	case "weekdays":

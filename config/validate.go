@@ -327,13 +327,24 @@ func settingError(value, msg, hint string) error {
 	return errors.New(strings.TrimPrefix(e, ": "))
 }
 
+// portAloneHint is the hint of a port n written alone where host:port
+// belongs (listen, as text or a number; --listen): `a port alone comes
+// after a colon: write it ":8080"`, which listens on every address, or, for
+// a number that is no port, the ports there are.
+func portAloneHint(n int64) string {
+	if n >= 0 && n <= 65535 {
+		return fmt.Sprintf(`a port alone comes after a colon: write it ":%d"`, n)
+	}
+	return `a port is 0..65535, written after a colon, e.g. ":8080"` // not "70000" in quotes either
+}
+
 func listenProblem(addr string) (msg, hint string) {
 	host, port, err := net.SplitHostPort(addr)
 	n, perr := strconv.Atoi(port)
 	switch {
 	case err != nil:
-		if n, err := strconv.Atoi(addr); err == nil && n >= 0 && n <= 65535 && addr[0] != '+' {
-			return "must be host:port", fmt.Sprintf(`a port alone comes after a colon: write it ":%d"`, n) // every address
+		if n, err := strconv.ParseInt(addr, 10, 64); err == nil && addr[0] != '+' {
+			return "must be host:port", portAloneHint(n)
 		}
 		return "must be host:port", `e.g. ":8080" or "127.0.0.1:8080"`
 	case perr != nil || n < 0 || n > 65535:
@@ -512,10 +523,10 @@ func (s *Site) validate(ps *problems, p string) {
 	checkID(ps, p+".id", s.ID, "site")
 	checkText(ps, p+".name", s.Name, false, MaxTextLength)
 	if !(s.Latitude >= -90 && s.Latitude <= 90) {
-		ps.add(p+".latitude", ftoa(s.Latitude), "must be within -90..90", "degrees, north positive, e.g. 47.07")
+		ps.add(p+".latitude", ftoa(s.Latitude), "must be within -90..90", LatitudeText)
 	}
 	if !(s.Longitude >= -180 && s.Longitude <= 180) {
-		ps.add(p+".longitude", ftoa(s.Longitude), "must be within -180..180", "degrees, east positive, west negative, e.g. -3.2")
+		ps.add(p+".longitude", ftoa(s.Longitude), "must be within -180..180", LongitudeText)
 	}
 	if !(s.Elevation >= MinElevation && s.Elevation <= MaxElevation) {
 		ps.add(p+".elevation", ftoa(s.Elevation), fmt.Sprintf("must be within %g..%g metres", MinElevation, MaxElevation), ElevationHint(s.Elevation))

@@ -57,3 +57,26 @@ func TestIlluminationHintsAgree(t *testing.T) {
 		}
 	}
 }
+
+// --lat, --lon and --elev that are no number, or out of range, get the
+// hint the configuration gives its site's key for the same value, in the
+// same words.
+func TestPlaceHintsAgree(t *testing.T) {
+	for _, tc := range []struct{ flag, key, value string }{
+		{"lat", "latitude", "42°52′48″S"},
+		{"lat", "latitude", "95"},
+		{"lon", "longitude", "72°15′W"},
+		{"lon", "longitude", "-181"},
+		{"elev", "elevation", "120m"},
+		{"elev", "elevation", "high"},
+		{"elev", "elevation", "12000"},
+	} {
+		hint := configHint(t, tc.key, tc.value)
+		args := []string{"events", "--lat", "0", "--lon", "0"}
+		args = append(args, "--"+tc.flag+"="+tc.value)
+		_, _, errOut := runCLI(t, args...)
+		if !strings.HasSuffix(errOut, " ("+hint+")\n") {
+			t.Errorf("--%s %s: %q, want the hint of %s: %s (%s)", tc.flag, tc.value, errOut, tc.key, tc.value, hint)
+		}
+	}
+}

@@ -217,12 +217,12 @@ func TestEventsBadInput(t *testing.T) {
 		{"format", []string{"events", "--lat", "0", "--lon", "0", "--format", "xml"}, "--format: \"xml\""},
 		{"site", []string{"events", "--site", "nowhere"}, "nowhere"},
 		{"flag", []string{"events", "--latitude", "1"}, "latitude"},
-		{"not a number", []string{"events", "--lat", "4O.5", "--lon", "0"}, `heliocal: --lat: "4O.5": not a number (decimal degrees, south negative, e.g. -42.88 for 42°52′48″S)` + "\n"},
+		{"not a number", []string{"events", "--lat", "4O.5", "--lon", "0"}, `heliocal: --lat: "4O.5": not a number (write decimal degrees, north positive, south negative, e.g. -42.88 for 42°52′48″S)` + "\n"},
 		// a place's flags say how to write them, as the site's keys do
-		{"degrees and minutes", []string{"events", "--lat", "0", "--lon", "72°15′W"}, `heliocal: --lon: "72°15′W": not a number (decimal degrees, west negative`},
-		{"elevation with its unit", []string{"events", "--lat", "0", "--lon", "0", "--elev", "120m"}, `--elev: "120m": not a number (metres above sea level, the number alone, e.g. 120)`},
+		{"degrees and minutes", []string{"events", "--lat", "0", "--lon", "72°15′W"}, `heliocal: --lon: "72°15′W": not a number (write decimal degrees, east positive, west negative`},
+		{"elevation with its unit", []string{"events", "--lat", "0", "--lon", "0", "--elev", "120m"}, `--elev: "120m": not a number (write the number alone, without the unit: 120)`},
 		{"elevation in feet", []string{"events", "--lat", "0", "--lon", "0", "--elev", "29000"}, `--elev: 29000: must be within -500..9000 metres (metres above sea level, not feet: write 8839 for 29000 ft)`}, // 29000 × 0.3048 m = 8839.2 m (the international foot, 0.3048 m exactly: NIST SP 811, appendix B)
-		{"latitude out of range", []string{"events", "--lat", "95", "--lon", "0"}, `--lat: 95: must be within -90..90 degrees (north positive, e.g. 47.07)`},
+		{"latitude out of range", []string{"events", "--lat", "95", "--lon", "0"}, `--lat: 95: must be within -90..90 (decimal degrees, north positive, south negative, e.g. -42.88 for 42°52′48″S)`},
 		{"temperature in Fahrenheit", []string{"events", "--lat", "0", "--lon", "0", "--temperature", "80"}, `(degrees Celsius, not Fahrenheit: write 26.7 for 80 °F)`}, // (80 − 32) × 5/9 = 26.67 (°C from °F: NIST SP 811, appendix B)
 		{"illumination as a percentage", []string{"events", "--lat", "0", "--lon", "0", "--kinds", "dark-window", "--max-illumination", "30"}, `--max-illumination: 30: must be within 0..1 (write a fraction of 1: 0.3 for 30 %)`},
 		{"not a duration", []string{"publish", "--lock-wait", "5", "--out", "unused"}, `heliocal: --lock-wait: "5": not a duration`},

@@ -285,20 +285,22 @@ func flagValueError(err error) error {
 	case "duration":
 		what = `not a duration (a number with a unit, e.g. "30s", "2m")`
 	}
-	if iv.GetFlag().Name == "max-illumination" { // "30%" as well as words
-		what += " (" + config.IlluminationHint(iv.GetValue()) + ")"
-	} else if hint, ok := flagHints[iv.GetFlag().Name]; ok {
-		what += " (" + hint + ")"
+	if key, ok := flagKeys[iv.GetFlag().Name]; ok {
+		if hint := config.NumberTextHint(key, iv.GetValue()); hint != "" {
+			what += " (" + hint + ")"
+		}
 	}
 	return fmt.Errorf("--%s: %q: %s", iv.GetFlag().Name, iv.GetValue(), what)
 }
 
-// flagHints say how to write the value of a flag of a place, as the
-// configuration's hints say it for the site's keys.
-var flagHints = map[string]string{
-	"lat":         config.LatitudeText,
-	"lon":         config.LongitudeText,
-	"elev":        "metres above sea level, the number alone, e.g. 120",
-	"pressure":    "hPa, the number alone, e.g. 1013",
-	"temperature": "degrees Celsius, the number alone, e.g. -5",
+// flagKeys are the configuration's keys of the numbers the flags give: a
+// value that is no number is told how to write it in the words of the
+// key's hint (config.NumberTextHint).
+var flagKeys = map[string]string{
+	"lat":              "latitude",
+	"lon":              "longitude",
+	"elev":             "elevation",
+	"pressure":         "pressure_hpa",
+	"temperature":      "temperature_c",
+	"max-illumination": "max_illumination",
 }

@@ -230,10 +230,10 @@ func adhocValues(raw string) (getter, error) {
 // parsePlace reads lat, lon and elev.
 func (q *AdhocQuery) parsePlace(get getter) error {
 	var err error
-	if q.Latitude, err = parseCoord(get, ParamLatitude, 90); err != nil {
+	if q.Latitude, err = parseCoord(get, ParamLatitude, 90, config.LatitudeText); err != nil {
 		return err
 	}
-	if q.Longitude, err = parseCoord(get, ParamLongitude, 180); err != nil {
+	if q.Longitude, err = parseCoord(get, ParamLongitude, 180, config.LongitudeText); err != nil {
 		return err
 	}
 	if q.Longitude == -180 {
@@ -345,7 +345,7 @@ func parseFloat(name, v string) (float64, error) {
 	f, err := strconv.ParseFloat(strings.TrimSpace(v), 64)
 	if err != nil || math.IsNaN(f) || math.IsInf(f, 0) {
 		msg := "not a decimal number"
-		if hint, ok := numberHints[name]; ok {
+		if hint := numberHint(name, v); hint != "" {
 			msg += " (" + hint + ")"
 		}
 		return 0, &QueryError{Param: name, Value: v, Msg: msg}
@@ -353,16 +353,26 @@ func parseFloat(name, v string) (float64, error) {
 	return f, nil
 }
 
-// numberHints say how to write the number of a parameter that is not one
-// ("2°", "120 m", "33°27′S"), as the configuration's hints for its keys do.
-var numberHints = map[string]string{
-	ParamLatitude:  "decimal degrees, south negative, e.g. -33.45 for 33°27′S",
-	ParamLongitude: "decimal degrees, west negative, e.g. -70.67 for 70°40′W",
-	ParamElevation: "metres above sea level, the number alone, e.g. 120",
-	ParamHorizon:   "the skyline's altitude in degrees, the number alone, e.g. 2; or points azimuth:altitude, e.g. 0:2,90:8",
+// numberHint says how to write the number of a parameter, v, that is not
+// one ("2°", "120 m", "33°27′S"): that of a place in the words of the
+// configuration's hint for its key (config.NumberTextHint); "" for a
+// parameter without a hint.
+func numberHint(name, v string) string {
+	if key, ok := paramKeys[name]; ok {
+		return config.NumberTextHint(key, strings.TrimSpace(v))
+	}
+	if name == ParamHorizon {
+		return "the skyline's altitude in degrees, the number alone, e.g. 2; or points azimuth:altitude, e.g. 0:2,90:8"
+	}
+	return ""
 }
 
-func parseCoord(get getter, name string, limit float64) (float64, error) {
+// paramKeys are the configuration's keys of the place's parameters.
+var paramKeys = map[string]string{ParamLatitude: "latitude", ParamLongitude: "longitude", ParamElevation: "elevation"}
+
+// parseCoord reads the coordinate name, within -limit..limit, whose hint
+// out of range is hint.
+func parseCoord(get getter, name string, limit float64, hint string) (float64, error) {
 	v, ok := get(name)
 	if !ok {
 		return 0, &QueryError{Param: name, Msg: fmt.Sprintf("required: decimal degrees within -%g..%g", limit, limit)}
@@ -372,7 +382,7 @@ func parseCoord(get getter, name string, limit float64) (float64, error) {
 		return 0, err
 	}
 	if f < -limit || f > limit {
-		return 0, &QueryError{Param: name, Value: v, Msg: fmt.Sprintf("must be within -%g..%g degrees", limit, limit)}
+		return 0, &QueryError{Param: name, Value: v, Msg: fmt.Sprintf("must be within -%g..%g (%s)", limit, limit, hint)}
 	}
 	return math.Round(f*coordDecimals)/coordDecimals + 0, nil
 }

@@ -126,8 +126,8 @@ func TestAdhocBadParameters(t *testing.T) {
 		// a number written with its unit or in degrees and minutes: the hint
 		// says how to write it (the value itself is checked above)
 		{ok + "&horizon=2%C2%B0", "horizon", "not a decimal number (the skyline's altitude in degrees, the number alone, e.g. 2;"},
-		{ok + "&elev=120%20m", "elev", "not a decimal number (metres above sea level, the number alone, e.g. 120)"},
-		{"lat=33%C2%B027%E2%80%B2S&lon=13&tz=UTC&kinds=sunrise", "lat", "not a decimal number (decimal degrees, south negative, e.g. -33.45 for 33°27′S)"},
+		{ok + "&elev=120%20m", "elev", "not a decimal number (write the number alone, without the unit: 120)"},
+		{"lat=33%C2%B027%E2%80%B2S&lon=13&tz=UTC&kinds=sunrise", "lat", "not a decimal number (write decimal degrees, north positive, south negative, e.g. -42.88 for 42°52′48″S)"},
 		{ok + "&utc=maybe", "utc", `"maybe"`},
 		{ok + "&lat=48", "lat", `"47.5,48"`},
 		{ok + "&latitude=48", "latitude", `"48"`},

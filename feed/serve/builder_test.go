@@ -269,7 +269,7 @@ func TestTableErrorPage(t *testing.T) {
 	s := builderTestServer(t)
 	h := s.Handler()
 	for _, tc := range []struct{ query, says string }{
-		{"lat=95&lon=10", `parameter lat=&#34;95&#34;: must be within -90..90 degrees`},
+		{"lat=95&lon=10", `parameter lat=&#34;95&#34;: must be within -90..90 (decimal degrees, north positive, south negative`},
 		{"lat=47.8&lon=13.05&kinds=sunrise&days=63", "parameter days=&#34;63&#34;"},
 	} {
 		r := get(t, h, "GET", "/at?"+tc.query)

@@ -1489,13 +1489,14 @@ var numberUnits = map[string][]string{
 var byteUnits = map[string]float64{"b": 1, "bytes": 1, "kb": 1e3, "mb": 1e6}
 
 // NumberTextHint says how to write, as a number, text x that is not one
-// where the configuration's key holds a number (the flags and the ad-hoc
-// feeds' parameters of the same numbers give their hints from here too): the number alone when the text is a number and
-// the key's own unit ("write 120" for elevation "120m"), a fraction for a
-// percentage of max_illumination, Celsius for a temperature in Fahrenheit,
-// the bytes of a size in kB or MB, decimal degrees for a latitude or
-// longitude in degrees and minutes; for words ("lots"), which have no
-// number to keep, what the key's number is, or "".
+// where the configuration's key holds a number: the number alone when the
+// text is a number and the key's own unit ("write 120" for elevation
+// "120m"), a fraction for a percentage of max_illumination, Celsius for a
+// temperature in Fahrenheit, the bytes of a size in kB or MB, decimal
+// degrees for a latitude or longitude in degrees and minutes; for words
+// ("lots"), which have no number to keep, what the key's number is, or "".
+// The flags and the ad-hoc feeds' parameters that give the same numbers
+// (--lat, lat) take their hints from here too.
 func NumberTextHint(key, x string) string {
 	n := len(x) - len(strings.TrimLeft(x, "+-.0123456789"))
 	num, unit := x[:n], strings.ToLower(strings.TrimSpace(x[n:]))

@@ -839,3 +839,43 @@ func TestBrowserPreviewClockChange(t *testing.T) {
 		t.Errorf("the preview says of the clocks %q, want %q", said, want)
 	}
 }
+
+// Until a date is chosen, the builder previews from today at the place,
+// as the subscribed feed and the table page start, not from the server's
+// date, which the page came with and which is another date where the
+// place's is not: for a place 14 hours ahead of UTC from 10:00 UTC
+// (Pacific/Kiritimati, UTC+14 in the tz database) or 12 hours behind it
+// before 12:00 UTC (Etc/GMT+12, the nautical zone of 172.5° W to 180°, UTC−12).
+// The date input then shows that date.
+func TestBrowserPreviewFromTodayAtThePlace(t *testing.T) {
+	ts := builderServer(t)
+	ctx := browser(t)
+	lat, lon, zone := "1.87", "-157.4", "Pacific/Kiritimati"
+	if time.Now().UTC().Hour() < 12 {
+		lat, lon, zone = "0", "-177.5", "Etc/GMT+12"
+	}
+	loc, err := time.LoadLocation(zone)
+	if err != nil {
+		t.Fatal(err)
+	}
+	before := time.Now().In(loc).Format(time.DateOnly)
+	if err := chromedp.Do(ctx,
+		chromedp.Navigate(ts.URL+"/"),
+		chromedp.WaitVisible(chromedp.ID("lat")),
+		chromedp.SendKeys(chromedp.ID("lat"), lat),
+		chromedp.SendKeys(chromedp.ID("lon"), lon),
+		chromedp.Poll[chromedp.Void](`document.querySelector("#preview th") !== null && document.getElementById("tz-found").textContent.startsWith("`+zone+`")`),
+	); err != nil {
+		t.Fatal(err)
+	}
+	got, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](`[document.querySelector("#preview th .date").textContent, document.getElementById("start").value]`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if after := time.Now().In(loc).Format(time.DateOnly); after != before {
+		t.Skipf("the date at %s changed during the test (%s to %s)", zone, before, after)
+	}
+	if len(got) != 2 || got[0] != before || got[1] != before {
+		t.Errorf("at %s, %s (%s) the preview starts on %q and the date input shows %q, want today there, %s", lat, lon, zone, got[0], got[1], before)
+	}
+}

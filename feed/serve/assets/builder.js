@@ -54,7 +54,11 @@ function query(withStart) {
     .filter((o) => o.value.trim() !== "" && o.value.trim() !== "0" && kinds.includes(o.dataset.kind))
     .map((o) => o.dataset.kind + ":" + Math.round(parseFloat(o.value)) + "m");
   if (offsets.length) p.set("offsets", offsets.join(","));
-  if (withStart && $("start").value) p.set("start", $("start").value);
+  // until a date is chosen, the preview is from today at the place, which
+  // the server takes when no start is given: the date the page came with
+  // is the server's, a day off where the place's date is not (render)
+  const start = $("start");
+  if (withStart && start.value && start.value !== start.defaultValue) p.set("start", start.value);
   return { params: p };
 }
 
@@ -100,6 +104,9 @@ function render(res) {
   // the days are those from the date chosen ("Preview from"), the next
   // ones or not
   if (res.days.length) $("days-h").textContent = "Seven days from " + res.days[0].weekday + " " + res.days[0].date;
+  // a date not chosen shows the first day previewed: today at the place
+  const start = $("start");
+  if (res.days.length && start.value === start.defaultValue) start.defaultValue = start.value = res.days[0].date;
   $("span-note").textContent = keepUnits(res.subscribe_note);
   const box = $("preview");
   box.textContent = "";

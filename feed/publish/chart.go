@@ -220,7 +220,8 @@ type markView struct {
 	X, Y1, Y2, TY string
 	Anchor        string // text-anchor of the label: kept inside the chart
 	Label, Date   string
-	Shown         bool // the label fits above the plot
+	Shown         bool          // the label fits above the plot
+	off           time.Duration // where it falls on the chart (see onChart)
 }
 
 type thresholdView struct {
@@ -234,6 +235,7 @@ type phaseView struct {
 	X, Y string
 	Full bool
 	Date string
+	off  time.Duration // where it falls on the chart (see onChart)
 }
 
 type todayView struct {
@@ -341,9 +343,14 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 		Title: chartTitle(siteName, first, last, len(c.Lamps) > 0, len(c.Dark) > 0),
 		Held:  heldText(c.Held, first, last),
 	}
-	ts := thresholds(days, c.Levels, today)
-	v.drawing = desk.draw("chart-"+id, "desk", c, today, ts)
-	v.Phone = phone.draw("chart-"+id, "ph", c, today, ts)
+	sh := shared{
+		today:  today,
+		ts:     thresholds(days, c.Levels, today),
+		marks:  datedMarks(c.Marks, c.Location, first, last),
+		phases: datedPhases(c.Phases, c.Location, first, last),
+	}
+	v.drawing = desk.draw("chart-"+id, "desk", c, sh)
+	v.Phone = phone.draw("chart-"+id, "ph", c, sh)
 	v.drawing.Title, v.Phone.Title = v.Title, v.Title
 	ahead := days // the summary speaks of the year from today
 	if today > 0 {
@@ -355,7 +362,7 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 			v.Summary += " " + w
 		}
 	}
-	for _, t := range ts {
+	for _, t := range sh.ts {
 		v.Summary += " " + t.Text + "."
 	}
 	if v.Today != nil {
@@ -367,12 +374,20 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 	return v
 }
 
-// draw draws the chart c in the geometry g; today is the index of today's
-// date in c.Days (see todayIndex) and ts its photoperiod crossings (see
-// thresholds).
-func (g geometry) draw(id, class string, c *SiteChart, today int, ts []thresholdView) drawing {
+// shared is what both drawings of a chart draw alike, found once by chart
+// and placed by each geometry's draw.
+type shared struct {
+	today  int             // the index of today's date in the chart's days (see todayIndex)
+	ts     []thresholdView // the photoperiod crossings (see thresholds)
+	marks  []markView      // the marks on the chart (see datedMarks)
+	phases []phaseView     // the Moon's phases on the chart (see datedPhases)
+}
+
+// draw draws the chart c in the geometry g, with what sh found for every
+// geometry.
+func (g geometry) draw(id, class string, c *SiteChart, sh shared) drawing {
 	days := c.Days
-	first, last := days[0].Date, days[len(days)-1].Date
+	span := chartSpan(days[0].Date, days[len(days)-1].Date)
 	return drawing{
 		ID: id, Class: class, Phone: g.Phone,
 		ViewBox:    "0 0 " + num(g.W) + " " + num(g.H),
@@ -392,10 +407,10 @@ func (g geometry) draw(id, class string, c *SiteChart, today int, ts []threshold
 		Step:       num(math.Max(g.dayStep(len(days)), 1)),
 		Months:     g.monthTicks(days),
 		Hours:      g.hourTicks(),
-		Marks:      g.markViews(c.Marks, c.Location, first, last),
-		Thresholds: g.thresholdViews(ts, len(days)),
-		Phases:     g.phaseViews(c.Phases, c.Location, first, last),
-		Today:      g.todayMark(today, days),
+		Marks:      g.markViews(sh.marks, span),
+		Thresholds: g.thresholdViews(sh.ts, len(days)),
+		Phases:     g.phaseViews(sh.phases, span),
+		Today:      g.todayMark(sh.today, days),
 	}
 }
 
@@ -541,44 +556,53 @@ func (g geometry) hourTicks() []tickView {
 	return ticks
 }
 
-// markViews places the marks within the dates first..last as vertical
-// lines. Each label stays inside the chart, on the first of two rows where
-// it does not run into the previous label; with no room, the line stays and
-// the label is only in its tooltip and the caption.
-func (g geometry) markViews(marks []Mark, loc *time.Location, first, last time.Time) []markView {
-	span := last.Add(24 * time.Hour).Sub(first)
+// datedMarks are the marks within the dates first..last in time order,
+// with their labels and dates but not yet placed (see markViews): the same
+// in every geometry, so found once for both drawings.
+func datedMarks(marks []Mark, loc *time.Location, first, last time.Time) []markView {
 	marks = append([]Mark(nil), marks...)
 	sort.SliceStable(marks, func(i, j int) bool { return marks[i].At.Before(marks[j].At) })
 	var views []markView
-	rowEnd := [2]float64{math.Inf(-1), math.Inf(-1)}
 	for _, m := range marks {
-		at := wallClock(m.At, loc)
-		x, ok := g.chartX(at, first, span)
-		if !ok {
-			continue
+		if off, date, ok := onChart(m.At, loc, first, last); ok {
+			views = append(views, markView{Label: m.Label, Date: date, off: off})
 		}
-		mv := markView{X: num(x), Y1: num(g.Top), Y2: num(g.bottom()), Label: m.Label, Date: chartDate(at.UTC(), first, last)}
-		if g.Phone { // no room for the labels: the tooltip and the caption say them
-			views = append(views, mv)
-			continue
-		}
-		w := 5.6 * float64(len([]rune(m.Label))) // about 5.6 units a character at 10 px
-		anchor, left := "middle", x-w/2
-		switch {
-		case x+w/2 > g.W-2:
-			anchor, left = "end", x-w
-		case x-w/2 < 2:
-			anchor, left = "start", x
-		}
-		mv.Anchor = anchor
-		for r := range rowEnd {
-			if left > rowEnd[r]+6 {
-				rowEnd[r] = left + w
-				mv.Y1, mv.TY, mv.Shown = num(g.Top-10-12*float64(r)), num(g.Top-14-12*float64(r)), true
-				break
+	}
+	return views
+}
+
+// markViews places the marks ms (see datedMarks) on a chart of span as
+// vertical lines. Each label stays inside the chart, on the first of two
+// rows where it does not run into the previous label; with no room, the
+// line stays and the label is only in its tooltip and the caption.
+func (g geometry) markViews(ms []markView, span time.Duration) []markView {
+	if len(ms) == 0 {
+		return nil
+	}
+	views := make([]markView, len(ms))
+	rowEnd := [2]float64{math.Inf(-1), math.Inf(-1)}
+	for k, mv := range ms {
+		x := g.chartX(mv.off, span)
+		mv.X, mv.Y1, mv.Y2 = num(x), num(g.Top), num(g.bottom())
+		if !g.Phone { // a phone has no room for the labels: the tooltip and the caption say them
+			w := 5.6 * float64(len([]rune(mv.Label))) // about 5.6 units a character at 10 px
+			left := x - w/2
+			mv.Anchor = "middle"
+			switch {
+			case x+w/2 > g.W-2:
+				mv.Anchor, left = "end", x-w
+			case x-w/2 < 2:
+				mv.Anchor, left = "start", x
+			}
+			for r := range rowEnd {
+				if left > rowEnd[r]+6 {
+					rowEnd[r] = left + w
+					mv.Y1, mv.TY, mv.Shown = num(g.Top-10-12*float64(r)), num(g.Top-14-12*float64(r)), true
+					break
+				}
 			}
 		}
-		views = append(views, mv)
+		views[k] = mv
 	}
 	return views
 }
@@ -644,28 +668,52 @@ func (g geometry) thresholdViews(ts []thresholdView, n int) []thresholdView {
 	return views
 }
 
-// chartX is the x of the wall-clock time at on a chart of span from
-// first; false when at is outside it.
-func (g geometry) chartX(at, first time.Time, span time.Duration) (float64, bool) {
+// chartSpan is the time a chart of the dates first..last covers, from
+// first's midnight to the midnight after last.
+func chartSpan(first, last time.Time) time.Duration { return last.Add(24 * time.Hour).Sub(first) }
+
+// onChart is where the instant at falls on the chart of the dates
+// first..last in loc (see wallClock): the time from first's midnight on the
+// local clock, and its date as the chart writes it (see chartDate); false
+// when it is outside the chart.
+func onChart(at time.Time, loc *time.Location, first, last time.Time) (time.Duration, string, bool) {
+	at = wallClock(at, loc)
 	off := at.Sub(first)
-	if off < 0 || off >= span {
-		return 0, false
+	if off < 0 || off >= chartSpan(first, last) {
+		return 0, "", false
 	}
-	return g.Left + g.PlotW*off.Hours()/span.Hours(), true
+	return off, chartDate(at.UTC(), first, last), true
 }
 
-// phaseViews places the new and full Moons within first..last on the row
-// above the plot.
-func (g geometry) phaseViews(phases []Phase, loc *time.Location, first, last time.Time) []phaseView {
-	span := last.Add(24 * time.Hour).Sub(first)
+// chartX is the x of a time off after the start of a chart of span (see
+// onChart).
+func (g geometry) chartX(off, span time.Duration) float64 {
+	return g.Left + g.PlotW*off.Hours()/span.Hours()
+}
+
+// datedPhases are the new and full Moons within first..last, dated but not
+// yet placed (see phaseViews): the same in every geometry, so found once
+// for both drawings.
+func datedPhases(phases []Phase, loc *time.Location, first, last time.Time) []phaseView {
 	var views []phaseView
 	for _, p := range phases {
-		at := wallClock(p.At, loc)
-		x, ok := g.chartX(at, first, span)
-		if !ok {
-			continue
+		if off, date, ok := onChart(p.At, loc, first, last); ok {
+			views = append(views, phaseView{Full: p.Full, Date: date, off: off})
 		}
-		views = append(views, phaseView{X: num(x), Y: num(g.Top - 6), Full: p.Full, Date: chartDate(at.UTC(), first, last)})
+	}
+	return views
+}
+
+// phaseViews places the new and full Moons ps (see datedPhases) on the row
+// above the plot of a chart of span.
+func (g geometry) phaseViews(ps []phaseView, span time.Duration) []phaseView {
+	if len(ps) == 0 {
+		return nil
+	}
+	views := make([]phaseView, len(ps))
+	for k, p := range ps {
+		p.X, p.Y = num(g.chartX(p.off, span)), num(g.Top-6)
+		views[k] = p
 	}
 	return views
 }

@@ -214,6 +214,7 @@ type tickView struct {
 	// the larger labels of a narrow screen, which leave it out; Alt every
 	// second one of the others, which the narrowest screens leave out.
 	Short, Alt bool
+	day        int // a month's tick: the index of its date in the chart's days
 }
 
 type markView struct {
@@ -346,6 +347,7 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 	sh := shared{
 		today:  today,
 		ts:     thresholds(days, c.Levels, today),
+		months: months(days),
 		marks:  datedMarks(c.Marks, c.Location, first, last),
 		phases: datedPhases(c.Phases, c.Location, first, last),
 	}
@@ -379,6 +381,7 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 type shared struct {
 	today  int             // the index of today's date in the chart's days (see todayIndex)
 	ts     []thresholdView // the photoperiod crossings (see thresholds)
+	months []tickView      // the months' ticks (see months)
 	marks  []markView      // the marks on the chart (see datedMarks)
 	phases []phaseView     // the Moon's phases on the chart (see datedPhases)
 }
@@ -405,7 +408,7 @@ func (g geometry) draw(id, class string, c *SiteChart, sh shared) drawing {
 		Lamps:      g.spans(days, c.Lamps),
 		Dark:       g.spans(days, c.Dark),
 		Step:       num(math.Max(g.dayStep(len(days)), 1)),
-		Months:     g.monthTicks(days),
+		Months:     g.monthTicks(sh.months, len(days)),
 		Hours:      g.hourTicks(),
 		Marks:      g.markViews(sh.marks, span),
 		Thresholds: g.thresholdViews(sh.ts, len(days)),
@@ -512,20 +515,19 @@ func chartSummary(days []ChartDay) string {
 	return s
 }
 
-// monthTicks puts a tick at each first of the month (and at the start),
+// months are the ticks at each first of the month (and at the start),
 // labelled when at least 12 days of that month are in the chart; Short when
 // fewer than 27 are, too narrow a column for the label a phone draws, and
-// Alt every second label of the others.
-func (g geometry) monthTicks(days []ChartDay) []tickView {
+// Alt every second label of the others. They are not yet placed (see
+// monthTicks): the same in every geometry, so found once for both drawings.
+func months(days []ChartDay) []tickView {
 	var ticks []tickView
-	step := g.dayStep(len(days))
 	alt := false
 	for i, d := range days {
 		if d.Date.Day() != 1 && i != 0 {
 			continue
 		}
-		x := g.Left + float64(i)*step
-		tv := tickView{X: num(x), TX: num(x + 3), TY: num(g.bottom() + 14)}
+		tv := tickView{day: i}
 		end := time.Date(d.Date.Year(), d.Date.Month()+1, 1, 0, 0, 0, 0, time.UTC)
 		if n := len(days) - i; end.Sub(d.Date) >= 12*24*time.Hour && n >= 12 {
 			tv.Label = d.Date.Format("Jan")
@@ -537,6 +539,21 @@ func (g geometry) monthTicks(days []ChartDay) []tickView {
 		if d.Date.Day() == 1 || tv.Label != "" {
 			ticks = append(ticks, tv)
 		}
+	}
+	return ticks
+}
+
+// monthTicks places the months' ticks ms (see months) on a chart of n days.
+func (g geometry) monthTicks(ms []tickView, n int) []tickView {
+	if len(ms) == 0 {
+		return nil
+	}
+	step := g.dayStep(n)
+	ticks := make([]tickView, len(ms))
+	for k, tv := range ms {
+		x := g.Left + float64(tv.day)*step
+		tv.X, tv.TX, tv.TY = num(x), num(x+3), num(g.bottom()+14)
+		ticks[k] = tv
 	}
 	return ticks
 }

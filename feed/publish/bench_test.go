@@ -4,6 +4,7 @@ import (
 	"bufio"
 	"context"
 	"fmt"
+	"math"
 	"os"
 	"strconv"
 	"strings"
@@ -118,4 +119,41 @@ func BenchmarkWriteBundle(b *testing.B) {
 			}
 		}
 	})
+}
+
+// BenchmarkChart turns a site's year into what the index page draws, in the
+// wide and the phone geometry: 365 days at Vienna's clock with sunrise and
+// sunset, the four seasons as marks, a new or full Moon every 14.77 days,
+// two photoperiod levels and today in March. The day lengths are a smooth
+// invented year, not computed: only the drawing is measured.
+//
+//	go test ./feed/publish -run '^$' -bench 'Chart$' -benchmem
+func BenchmarkChart(b *testing.B) {
+	vienna, err := time.LoadLocation("Europe/Vienna")
+	if err != nil {
+		b.Fatal(err)
+	}
+	first := time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC)
+	c := &SiteChart{Location: vienna, Today: time.Date(2027, 3, 20, 0, 0, 0, 0, time.UTC)}
+	for i := range 365 {
+		day := time.Duration((12 + 4*math.Sin(2*math.Pi*float64(i-80)/365)) * float64(time.Hour))
+		noon := 12*time.Hour + 5*time.Minute
+		c.Days = append(c.Days, ChartDay{
+			Date: first.AddDate(0, 0, i), Daylight: day, Civil: day + time.Hour, Nautical: day + 2*time.Hour,
+			Astronomical: day + 3*time.Hour, Rise: noon - day/2, Set: noon + day/2, HasRise: true, HasSet: true,
+		})
+	}
+	for i, name := range []string{"March equinox", "June solstice", "September equinox", "December solstice"} {
+		c.Marks = append(c.Marks, Mark{At: time.Date(2027, time.Month(3+3*i), 21, 10, 0, 0, 0, time.UTC), Label: name})
+	}
+	for at, full := time.Date(2027, 1, 7, 20, 24, 0, 0, time.UTC), false; at.Year() == 2027; at, full = at.Add(1275700*time.Second), !full {
+		c.Phases = append(c.Phases, Phase{At: at, Full: full})
+	}
+	c.Levels = []Level{{Length: 12 * time.Hour}, {Length: 14*time.Hour + 30*time.Minute, Label: "seedlings"}}
+	b.ReportAllocs()
+	for b.Loop() {
+		if chart("fernhollow", "Fernhollow Farm", c) == nil {
+			b.Fatal("no chart")
+		}
+	}
 }

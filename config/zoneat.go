@@ -69,7 +69,7 @@ func DescribeZone(loc *time.Location, t time.Time) string {
 	abbr, off := t.In(loc).Zone()
 	sign := "+"
 	if off < 0 {
-		sign, off = "−", -off
+		sign, off = MinusSign, -off
 	}
 	utc := fmt.Sprintf("UTC%s%02d:%02d", sign, off/3600, off%3600/60)
 	if abbr == "" || strings.HasPrefix(abbr, "+") || strings.HasPrefix(abbr, "-") || abbr == "UTC" || abbr == "GMT" {

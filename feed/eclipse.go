@@ -131,12 +131,7 @@ func bodyPlace(body string, c astro.Contact) string {
 	case c.Altitude < 1:
 		return fmt.Sprintf("%s on the horizon in the %s (azimuth %.0f°)", body, astro.CompassPoint(c.Azimuth), c.Azimuth)
 	}
-	return fmt.Sprintf("%s %s high in the %s (azimuth %.0f°)", body, degreesWhole(c.Altitude), astro.CompassPoint(c.Azimuth), c.Azimuth)
-}
-
-// degreesWhole writes an angle to the degree, with a proper minus sign.
-func degreesWhole(a float64) string {
-	return strings.Replace(fmt.Sprintf("%.0f°", a), "-", "−", 1)
+	return fmt.Sprintf("%s %.0f° high in the %s (azimuth %.0f°)", body, c.Altitude, astro.CompassPoint(c.Azimuth), c.Azimuth)
 }
 
 // describeEclipse gives the title and description of an eclipse entry.

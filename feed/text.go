@@ -48,7 +48,7 @@ func ZoneLabel(abbr string) string {
 	}
 	sign := "+"
 	if abbr[0] == '-' {
-		sign = "−"
+		sign = config.MinusSign
 	}
 	if len(abbr) == 3 {
 		return "UTC" + sign + abbr[1:]
@@ -206,9 +206,9 @@ func appendDays(b []byte, n int64) []byte {
 	case n > 1:
 		return append(strconv.AppendInt(append(b, " +"...), n, 10), " days"...)
 	case n == -1:
-		return append(b, " −1 day"...)
+		return append(b, " "+config.MinusSign+"1 day"...)
 	}
-	return append(strconv.AppendInt(append(b, " −"...), -n, 10), " days"...)
+	return append(strconv.AppendInt(append(b, " "+config.MinusSign...), -n, 10), " days"...)
 }
 
 // appendOtherDay appends, after the clock time of an instant on the local
@@ -402,7 +402,7 @@ func Change(d time.Duration) string { return string(appendChange(nil, d)) }
 func appendChange(b []byte, d time.Duration) []byte {
 	// the sign is that of the change as shown, to the second
 	if d = d.Round(time.Second); d < 0 {
-		b, d = append(b, "−"...), -d
+		b, d = append(b, config.MinusSign...), -d
 	} else {
 		b = append(b, '+')
 	}
@@ -422,7 +422,7 @@ func degrees(a float64) string {
 	if s == "-0.0°" {
 		return "0.0°"
 	}
-	return strings.Replace(s, "-", "−", 1)
+	return config.Minus(s)
 }
 
 // height says how high a body is in a title: "35.2° high" (with the word
@@ -522,7 +522,7 @@ func AltitudeText(v float64) string { return numberText(v) + "°" }
 // numberText writes v with the digits it needs and a proper minus sign:
 // "−20", "1.5".
 func numberText(v float64) string {
-	return strings.Replace(strconv.FormatFloat(v, 'f', -1, 64), "-", "−", 1)
+	return config.Minus(strconv.FormatFloat(v, 'f', -1, 64))
 }
 
 // where names site s in a text with its coordinates: "Fernhollow Mixed Farm

@@ -603,13 +603,10 @@ func stateText(s astro.State) string {
 // zero ("0.00", never "−0.00"). JSON and CSV write numbers as numbers.
 func signed(x float64, decimals int) string {
 	s := strconv.FormatFloat(x, 'f', decimals, 64)
-	if s[0] != '-' {
-		return s
+	if strings.Trim(s, "-0.") == "" {
+		return strings.TrimPrefix(s, "-")
 	}
-	if strings.Trim(s[1:], "0.") == "" {
-		return s[1:]
-	}
-	return "−" + s[1:]
+	return config.Minus(s)
 }
 
 // detailsAt is the table's DETAILS of an event at the site of observer o.

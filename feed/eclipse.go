@@ -190,7 +190,7 @@ func describeSolar(s *siteInfo, e Event) (string, string) {
 	loc := s.TimeZone.Location
 	typ := l.Type.String()
 	var b strings.Builder
-	fmt.Fprintf(&b, "%s solar eclipse seen from %s, %s to %s%s.\n", capital(typ), s.where,
+	fmt.Fprintf(&b, "%s solar eclipse seen from %s, %s to %s%s.\n", Capital(typ), s.where,
 		localClock(l.C1.Time, loc), localClock(l.C4.Time, loc), DayMark(l.C4.Time, e.Date, loc))
 	line := func(name string, c astro.Contact, extra string) {
 		fmt.Fprintf(&b, "%s %s; %s%s.\n", localClock(c.Time, loc), name, placeAt(e, "Sun", c), extra)
@@ -237,7 +237,7 @@ func describeSolar(s *siteInfo, e Event) (string, string) {
 	b.WriteString(cautionEclipse + "\n" + solarMethod)
 	b.WriteString(FutureNote(l.Max.Time))
 
-	title := fmt.Sprintf("%s solar eclipse: %s of the Sun's diameter covered", capital(typ), share(best))
+	title := fmt.Sprintf("%s solar eclipse: %s of the Sun's diameter covered", Capital(typ), share(best))
 	switch l.Type {
 	case astro.Total:
 		title = fmt.Sprintf("Total solar eclipse: %s of totality", Length(span(l.C2.Time, l.C3.Time), time.Second))
@@ -245,7 +245,7 @@ func describeSolar(s *siteInfo, e Event) (string, string) {
 		title = fmt.Sprintf("Annular solar eclipse: %s of annularity", Length(span(l.C2.Time, l.C3.Time), time.Second))
 	}
 	if l.Type != astro.Partial && (!l.C2.Up || !l.C3.Up) {
-		title = fmt.Sprintf("%s solar eclipse at the horizon", capital(typ))
+		title = fmt.Sprintf("%s solar eclipse at the horizon", Capital(typ))
 	}
 	switch {
 	case e.Skyline: // the skyline's suffix instead
@@ -264,7 +264,7 @@ func describeLunar(s *siteInfo, ev Event) (string, string) {
 	e := l.Eclipse
 	typ := e.Type.String()
 	var b strings.Builder
-	fmt.Fprintf(&b, "%s lunar eclipse seen from %s, %s to %s%s.\n", capital(typ), s.where,
+	fmt.Fprintf(&b, "%s lunar eclipse seen from %s, %s to %s%s.\n", Capital(typ), s.where,
 		localClock(l.P1.Time, loc), localClock(l.P4.Time, loc), DayMark(l.P4.Time, ev.Date, loc))
 	line := func(name string, c astro.Contact, extra string) {
 		if c.IsZero() {

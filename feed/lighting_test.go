@@ -678,7 +678,7 @@ func TestLightingMeaningOncePerCalendar(t *testing.T) {
 		if e.Kind == "lighting:14h30m" {
 			target = "14 h 30 min"
 		}
-		line := strings.ToUpper(e.Facts.Part[:1]) + e.Facts.Part[1:] + " lamps on at " + localClock(e.Start, loc) + ", off at " + localClock(e.End, loc) + " (" + hm(e.Facts.Lamp) + ").\n" +
+		line := Capital(e.Facts.Part) + " lamps on at " + localClock(e.Start, loc) + ", off at " + localClock(e.End, loc) + " (" + hm(e.Facts.Lamp) + ").\n" +
 			"Natural day " + hm(e.Facts.DayLength) + "; target " + target + "."
 		if !strings.HasPrefix(e.Description, line) {
 			t.Errorf("%s %s: description\n%s\nwant it to start\n%s", e.Date.Format(time.DateOnly), e.Kind, e.Description, line)

@@ -131,6 +131,28 @@ func TestAppendStamp(t *testing.T) {
 	}
 }
 
+// Capital makes the first letter a capital by the Unicode case mappings
+// (UnicodeData.txt: U+0074 t → U+0054 T, U+00E9 é → U+00C9 É, U+03B1 α →
+// U+0391 Α); a first character without one (a digit, U+00DF ß, whose
+// single-letter mapping is itself) leaves the text as it is.
+func TestCapital(t *testing.T) {
+	for _, c := range []struct{ in, want string }{
+		{"total solar eclipse", "Total solar eclipse"},
+		{"Total", "Total"},
+		{"t", "T"},
+		{"été", "Été"},
+		{"\u03b1 Centauri", "\u0391 Centauri"},
+		{"ße", "ße"},
+		{"24 h", "24 h"},
+		{"", ""},
+		{"\xffab", "\xffab"}, // not UTF-8: left as it is
+	} {
+		if got := Capital(c.in); got != c.want {
+			t.Errorf("Capital(%q) = %q, want %q", c.in, got, c.want)
+		}
+	}
+}
+
 // ZoneLabel names a zone as its abbreviation where the time zone database
 // has one, and spells out the numeric ones it gives where it has none
 // (IANA tz database: America/Santiago "-04" and "-03", Asia/Kathmandu

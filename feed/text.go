@@ -7,6 +7,8 @@ import (
 	"strconv"
 	"strings"
 	"time"
+	"unicode"
+	"unicode/utf8"
 
 	"heliocal/astro"
 	"heliocal/config"
@@ -755,8 +757,17 @@ func filterMeaning(spec config.KindSpec) (name, phrase string) {
 	if len(parts) == 0 {
 		return "", ""
 	}
-	name = plainName(spec.Kind)
-	return strings.ToUpper(name[:1]) + name[1:], strings.Join(parts, ", ")
+	return Capital(plainName(spec.Kind)), strings.Join(parts, ", ")
+}
+
+// Capital writes s with its first letter a capital, as a sentence or a
+// title begins: "total solar eclipse" is "Total solar eclipse".
+func Capital(s string) string {
+	r, n := utf8.DecodeRuneInString(s)
+	if u := unicode.ToUpper(r); u != r {
+		return string(u) + s[n:]
+	}
+	return s
 }
 
 // AndList joins words as a sentence lists them: "a", "a and b", "a, b and
@@ -1356,13 +1367,6 @@ func seasonStarted(kind string, lat float64) string {
 		return south[kind]
 	}
 	return north[kind]
-}
-
-func capital(s string) string {
-	if s == "" {
-		return s
-	}
-	return strings.ToUpper(s[:1]) + s[1:]
 }
 
 // FormatCount writes 41210 as "41,210", with grouping commas; every count

@@ -429,7 +429,7 @@ func heldText(held []HeldDates, first, last time.Time) string {
 		what := feed.AndList(h.What)
 		from, to := chartDate(h.First, first, last), chartDate(h.Last, first, last)
 		b.WriteString(" ")
-		b.WriteString(strings.ToUpper(what[:1]) + what[1:])
+		b.WriteString(feed.Capital(what))
 		fmt.Fprintf(&b, " of the feed %s ", h.Feed)
 		switch {
 		case h.Last.Before(h.First):

@@ -101,7 +101,7 @@ func testCalendars(t testing.TB, rev string) []*feed.Calendar {
 			case r.At.IsZero():
 				continue
 			default:
-				e.Title = strings.ToUpper(r.Kind[:1]) + r.Kind[1:]
+				e.Title = feed.Capital(r.Kind)
 				e.Start = r.At
 				e.Categories = append(e.Categories, e.Title)
 			}

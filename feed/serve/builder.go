@@ -156,8 +156,20 @@ func (s *Server) serveBuilder(w http.ResponseWriter, r *http.Request, route, p s
 		h := w.Header()
 		h["Content-Type"] = a.contentType
 		h["Cache-Control"] = hdrNoCache
-		h["Etag"] = a.etag
-		http.ServeContent(w, r, "", time.Time{}, bytes.NewReader(a.data))
+		// compressed once, as a feed is, with an ETag of its own
+		body, etag := a.data, a.etag
+		if a.gz != nil {
+			h["Vary"] = hdrVary
+			if acceptsGzip(r.Header.Get("Accept-Encoding")) {
+				body, etag, h["Content-Encoding"] = a.gz, a.gzETag, hdrGzip
+			}
+		}
+		h["Etag"] = etag
+		if unconditional(r) { // with its Content-Length, gzip form or not
+			writeWhole(w, r, nil, bytes.NewReader(body))
+			return
+		}
+		http.ServeContent(w, r, "", time.Time{}, bytes.NewReader(body))
 		return
 	}
 	if s.opts.Preview == nil {
@@ -482,7 +494,27 @@ func (s *Server) servePreview(w http.ResponseWriter, r *http.Request) {
 	h := w.Header()
 	h.Set("Content-Type", "application/json")
 	h["Cache-Control"] = hdrNoStore
+	writeBody(w, r, http.StatusOK, body)
+}
+
+// writeBody answers r with body under status code, compressed at the
+// fastest level (as an ad-hoc feed is) for a client that accepts gzip when
+// it is long enough to gain from it: the page, its preview and the table,
+// made for each request, of which the QR code and the kinds' list are most
+// of the bytes. The headers but Content-Length and Content-Encoding are
+// set already.
+func writeBody(w http.ResponseWriter, r *http.Request, code int, body []byte) {
+	h := w.Header()
+	if len(body) >= minGzip {
+		h["Vary"] = hdrVary
+		if acceptsGzip(r.Header.Get("Accept-Encoding")) {
+			if gz := gzipFast(body); gz != nil { // nil: it would save too little
+				body, h["Content-Encoding"] = gz, hdrGzip
+			}
+		}
+	}
 	h.Set("Content-Length", strconv.Itoa(len(body)))
+	w.WriteHeader(code)
 	if r.Method != http.MethodHead {
 		w.Write(body)
 	}
@@ -758,11 +790,7 @@ func (s *Server) renderStatus(w http.ResponseWriter, r *http.Request, code int, 
 		return
 	}
 	htmlHeaders(w)
-	w.Header().Set("Content-Length", strconv.Itoa(buf.Len()))
-	w.WriteHeader(code)
-	if r.Method != http.MethodHead {
-		w.Write(buf.Bytes())
-	}
+	writeBody(w, r, code, buf.Bytes())
 }
 
 // tableView is the data of table.html.

@@ -1,11 +1,14 @@
 package serve
 
 import (
+	"compress/gzip"
 	"context"
 	"encoding/base64"
 	"encoding/json"
 	"errors"
+	"io"
 	"net/http"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -380,5 +383,54 @@ func TestPreviewClockChange(t *testing.T) {
 	}
 	if len(res.Days) != 2 || res.Days[0].Clocks != "" || res.Days[1].Clocks != "Clocks go forward for summer time by 1 h: 00:00 becomes 01:00" {
 		t.Errorf("/at.json days %+v, want the clocks said on 2027-03-14 only", res.Days)
+	}
+}
+
+// The page, its files, its preview and the table (a refusal too) go
+// gzip-compressed to a client that accepts it, as the feeds do: behind the
+// shipped nginx site, which compresses nothing itself (deploy/nginx), they
+// went as they are. The compressed bytes are the same page, and a client
+// that does not take gzip gets it as it is; a page's own file revalidates
+// with the ETag of the form it got.
+func TestPagesGzipped(t *testing.T) {
+	h := builderTestServer(t).Handler()
+	q := "lat=47.5&lon=13.05&tz=Europe/Vienna&kinds=sunrise,sunset&start=2026-06-21"
+	for _, tc := range []struct {
+		path string
+		code int
+	}{
+		{"/", 200}, {"/at.json?" + q, 200}, {"/at?" + q, 200}, {"/at?lat=95&lon=13", 400},
+		{"/assets/builder.js", 200}, {"/assets/builder.css", 200},
+	} {
+		plainRes := get(t, h, "GET", tc.path)
+		want := body(t, plainRes)
+		if plainRes.StatusCode != tc.code || plainRes.Header.Get("Content-Encoding") != "" || plainRes.Header.Get("Vary") != "Accept-Encoding" {
+			t.Errorf("%s without gzip: %d, Content-Encoding %q, Vary %q; want %d, none, Accept-Encoding", tc.path, plainRes.StatusCode,
+				plainRes.Header.Get("Content-Encoding"), plainRes.Header.Get("Vary"), tc.code)
+		}
+		r := get(t, h, "GET", tc.path, "Accept-Encoding", "gzip, deflate, br")
+		gz := body(t, r)
+		if r.StatusCode != tc.code || r.Header.Get("Content-Encoding") != "gzip" || r.Header.Get("Vary") != "Accept-Encoding" ||
+			r.Header.Get("Content-Length") != strconv.Itoa(len(gz)) {
+			t.Errorf("%s with gzip: %d, Content-Encoding %q, Vary %q, Content-Length %q of %d bytes; want %d, gzip", tc.path, r.StatusCode,
+				r.Header.Get("Content-Encoding"), r.Header.Get("Vary"), r.Header.Get("Content-Length"), len(gz), tc.code)
+			continue
+		}
+		zr, err := gzip.NewReader(strings.NewReader(gz))
+		if err != nil {
+			t.Fatalf("%s: %v", tc.path, err)
+		}
+		got, err := io.ReadAll(zr)
+		if err != nil || string(got) != want || len(gz) >= len(want) {
+			t.Errorf("%s: %d compressed bytes (%v) inflate to %d bytes, want the %d of the page as it is", tc.path, len(gz), err, len(got), len(want))
+		}
+		if etag := r.Header.Get("Etag"); strings.HasPrefix(tc.path, "/assets/") {
+			if etag == plainRes.Header.Get("Etag") || !strings.HasSuffix(etag, `-gz"`) {
+				t.Errorf("%s: the gzip form's ETag %s, the other's %s; want one of its own", tc.path, etag, plainRes.Header.Get("Etag"))
+			}
+			if r := get(t, h, "GET", tc.path, "Accept-Encoding", "gzip", "If-None-Match", etag); r.StatusCode != http.StatusNotModified {
+				t.Errorf("%s: revalidating the gzip form: %d, want 304", tc.path, r.StatusCode)
+			}
+		}
 	}
 }

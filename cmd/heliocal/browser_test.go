@@ -879,3 +879,43 @@ func TestBrowserPreviewFromTodayAtThePlace(t *testing.T) {
 		t.Errorf("at %s, %s (%s) the preview starts on %q and the date input shows %q, want today there, %s", lat, lon, zone, got[0], got[1], before)
 	}
 }
+
+// The lighting input takes hours, and a target it refuses is told back in
+// hours, as it was given: 30 (over the 24 h of a day) is `lighting="30h"`,
+// not the "1800m" the page sent for it; 14.5 is a target of 14h30m.
+func TestBrowserLightingInHours(t *testing.T) {
+	ts := builderServer(t)
+	ctx := browser(t)
+	if err := chromedp.Do(ctx,
+		chromedp.Navigate(ts.URL+"/"),
+		chromedp.WaitVisible(chromedp.ID("lat")),
+		chromedp.SendKeys(chromedp.ID("lat"), "48.2"),
+		chromedp.SendKeys(chromedp.ID("lon"), "16.4"),
+		chromedp.SetValue(chromedp.ID("lighting"), "30"),
+		chromedp.Evaluate[chromedp.Void](`document.getElementById("builder").dispatchEvent(new Event("input"))`),
+		chromedp.Poll[chromedp.Void](`document.getElementById("lighting").getAttribute("aria-invalid") === "true"`),
+	); err != nil {
+		t.Fatal(err)
+	}
+	msg, err := chromedp.Run(ctx, chromedp.Text(chromedp.ID("field-error")))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(msg, `parameter lighting="30h"`) {
+		t.Errorf("lighting 30 h: the message under the input reads %q, want it to name lighting=\"30h\"", msg)
+	}
+	if err := chromedp.Do(ctx,
+		chromedp.SetValue(chromedp.ID("lighting"), "14.5"),
+		chromedp.Evaluate[chromedp.Void](`document.getElementById("builder").dispatchEvent(new Event("input"))`),
+		chromedp.Poll[chromedp.Void](`document.getElementById("lighting").getAttribute("aria-invalid") === null && document.getElementById("https").value.includes("lighting")`),
+	); err != nil {
+		t.Fatal(err)
+	}
+	https, err := chromedp.Run(ctx, chromedp.Value(chromedp.ID("https")))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(https, "lighting:14h30m") {
+		t.Errorf("lighting 14.5 h: the subscribe link %s, want a target of 14h30m", https)
+	}
+}

@@ -49,7 +49,7 @@ function query(withStart) {
   if ($("name").value.trim() !== "") p.set("name", $("name").value.trim());
   if ($("tz").value.trim() !== "") p.set("tz", $("tz").value.trim());
   if (num("alarm") !== "" && num("alarm") !== "0") p.set("alarm", num("alarm") + "m");
-  if (num("lighting") !== "") p.set("lighting", Math.round(parseFloat(num("lighting")) * 60) + "m");
+  if (num("lighting") !== "") p.set("lighting", hours(parseFloat(num("lighting"))));
   const offsets = [...document.querySelectorAll("input.offset")]
     .filter((o) => o.value.trim() !== "" && o.value.trim() !== "0" && kinds.includes(o.dataset.kind))
     .map((o) => o.dataset.kind + ":" + Math.round(parseFloat(o.value)) + "m");
@@ -60,6 +60,15 @@ function query(withStart) {
   const start = $("start");
   if (withStart && start.value && start.value !== start.defaultValue) p.set("start", start.value);
   return { params: p };
+}
+
+// hours writes a number of hours, as the lighting input takes it, as a
+// duration in the hours the input shows: 16 is "16h", 16.5 "16h30m", so
+// that a refused value is told back as it was given ("30h", not "1800m").
+function hours(h) {
+  const whole = Math.trunc(h);
+  const min = Math.round((h - whole) * 60);
+  return whole + "h" + (min ? min + "m" : "");
 }
 
 // The inputs whose server parameter has the same name: a refused query

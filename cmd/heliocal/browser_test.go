@@ -919,3 +919,27 @@ func TestBrowserLightingInHours(t *testing.T) {
 		t.Errorf("lighting 14.5 h: the subscribe link %s, want a target of 14h30m", https)
 	}
 }
+
+// Printed, the day-by-day table (/at) keeps each date's row on one page: a
+// row split over two pages went on at the top of the next without its date
+// ("19:41 Sunset" under an empty date cell, a fortnight of four kinds at
+// Havana printed to PDF by chromium). Each row, under the print media, is
+// not to break inside.
+func TestBrowserTablePrintsRowsWhole(t *testing.T) {
+	ts := builderServer(t)
+	ctx := browser(t)
+	table := ts.URL + "/at?lat=23.11&lon=-82.41&tz=America/Havana&name=Solmar%20Pavilion&kinds=sunset,golden-hour,moonrise,dark-window&start=2027-03-12&days=14"
+	if err := chromedp.Do(ctx, chromedp.Navigate(table), chromedp.WaitVisible(chromedp.CSS("table.days"))); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := chromedp.Call(ctx, emulation.SetEmulatedMedia, emulation.SetEmulatedMediaParams{Media: "print"}); err != nil {
+		t.Fatal(err)
+	}
+	got, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](`[...new Set([...document.querySelectorAll("table.days tbody tr")].map(tr => getComputedStyle(tr).breakInside))]`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(got) != 1 || got[0] != "avoid" {
+		t.Errorf("printed, the table's rows break inside: %q, want \"avoid\" for every row", got)
+	}
+}

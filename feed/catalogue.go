@@ -273,7 +273,7 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 		}
 		for _, n := range col.notes[m0:] {
 			if n.Kind.Name == "photoperiod" && !n.Last.IsZero() {
-				title, _ := describeNote(w.site, n)
+				title, _, _ := describeNote(w.site, n)
 				col.notCrossed = append(col.notCrossed, KindNote{Kind: n.Kind.String(), Title: title})
 			}
 		}
@@ -846,8 +846,9 @@ func (w *entryWriter) kindName(k config.Kind) string {
 
 // textSpan locates the description (text[from:to]) and the UID
 // (text[uid:uid+uidLen]) of the entry out[entry], and its title
-// (text[title:uid]) when title is not 0.
-type textSpan struct{ entry, from, to, uid, title int }
+// (text[title:row]) and the title's row form (text[row:uid], RowTitle)
+// when title is not 0.
+type textSpan struct{ entry, from, to, uid, title, row int }
 
 // textPerEntry is room for the description and UID of most entries: a
 // dawn or dusk with its caution takes about 190 bytes with its title, a
@@ -1015,7 +1016,7 @@ func (w *entryWriter) flushText() {
 		e := &w.out[sp.entry]
 		e.Description, e.UID = s[sp.from-base:sp.to-base], s[sp.uid-base:sp.uid-base+uidLen]
 		if sp.title > 0 {
-			e.Title = s[sp.title-base : sp.uid-base]
+			e.Title, e.row = s[sp.title-base:sp.row-base], s[sp.row-base:sp.uid-base]
 		}
 	}
 	if !w.keepText {
@@ -1143,21 +1144,26 @@ func (st *specState) occurrence(day int64, part string, dir astro.Direction) int
 func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 	offset := time.Duration(spec.Offset)
 	z := w.site.zone
-	var title string
-	var lamp []byte // a lamp period's title, written to text when kept as it is
+	var title, row string // row: the title's form in a row of the date (RowTitle), if another
+	// a lamp period's title and its row's form, written to text when
+	// kept as they are
+	var lamp, lampRow []byte
 	from := len(w.text)
 	if e.Kind.Name == config.KindLighting {
-		var buf [96]byte
-		w.text, lamp = w.cur.lamp.appendDescription(w.text, buf[:0], w.site, e) // begin's, for spec
+		var buf [160]byte
+		w.text, lamp, lampRow = w.cur.lamp.appendDescription(w.text, buf[:0], w.site, e) // begin's, for spec
 		if offset != 0 || spec.Label != "" {
 			title, lamp = string(lamp), nil
 		}
 	} else {
-		w.text, title = appendDescription(w.text, w.site, e)
+		w.text, title, row = appendDescription(w.text, w.site, e)
 	}
 	if offset != 0 {
 		// "<title>: <clock>.\n" before the event's own description
 		title = offsetTitle(offset, title)
+		if row != "" {
+			row = offsetTitle(offset, row)
+		}
 		w.scratch = append(w.scratch[:0], w.text[from:]...)
 		at := e.Start.Add(offset)
 		w.text = z.appendClock(append(append(w.text[:from], title...), ": "...), at)
@@ -1165,7 +1171,7 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 		w.text = append(w.text, w.scratch...)
 	}
 	if spec.Label != "" {
-		title = spec.Label
+		title, row = spec.Label, "" // the user's words, in a row too
 	}
 	st := &w.cur
 	kind := st.kind
@@ -1173,7 +1179,7 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 		kind = w.kindName(e.Kind)
 	}
 	en := w.next()
-	en.Kind, en.Title, en.Start, en.End, en.Date, en.Alarm = kind, title, e.Start, e.End, e.Date, w.alarm
+	en.Kind, en.Title, en.row, en.Start, en.End, en.Date, en.Alarm = kind, title, row, e.Start, e.End, e.Date, w.alarm
 	if offset != 0 {
 		en.Start = e.Start.Add(offset)
 		if !e.End.IsZero() {
@@ -1205,8 +1211,8 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 	}
 	sp := textSpan{entry: len(w.out) - 1, from: from, to: len(w.text), uid: len(w.text)}
 	if lamp != nil {
-		w.text = append(w.text, lamp...)
-		sp.title, sp.uid = sp.to, len(w.text)
+		w.text = append(append(w.text, lamp...), lampRow...)
+		sp.title, sp.row, sp.uid = sp.to, sp.to+len(lamp), len(w.text)
 	}
 	// the UID of the parts kind, offset, date, part and direction
 	var key []byte
@@ -1242,11 +1248,11 @@ func (w *entryWriter) next() *Entry {
 }
 
 func (w *entryWriter) note(n Note) {
-	var title, desc string
+	var title, row, desc string
 	if n.Kind.Name == config.KindLighting {
 		title, desc = describeLightingNote(w.site, n, w.last)
 	} else {
-		title, desc = describeNote(w.site, n)
+		title, row, desc = describeNote(w.site, n)
 	}
 	key := "note|" + n.Family + "|" + n.Date.Format(time.DateOnly)
 	if w.noted[key] {
@@ -1257,6 +1263,7 @@ func (w *entryWriter) note(n Note) {
 		UID:         w.uid(key),
 		Kind:        n.Kind.String(),
 		Title:       title,
+		row:         row,
 		Description: desc,
 		Categories:  w.categories(n.Kind),
 		Start:       n.Date,

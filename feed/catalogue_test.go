@@ -567,7 +567,7 @@ func TestCrossQuarterLabels(t *testing.T) {
 		if d := math.Abs(math.Remainder(p.Longitude-mustFloat(t, e.Part), 360)); d > 1e-4 {
 			t.Errorf("%s: the Sun is at %.4f°, labelled %s°", e.Date.Format(time.DateOnly), p.Longitude, e.Part)
 		}
-		_, desc := describe(newSiteInfo(s), e)
+		_, _, desc := describe(newSiteInfo(s), e)
 		if !strings.Contains(desc, "longitude "+w.part+"°") || !strings.Contains(desc, w.between) {
 			t.Errorf("%s: description %q", e.Date.Format(time.DateOnly), desc)
 		}
@@ -694,17 +694,17 @@ func TestNightDates(t *testing.T) {
 	if e.Date != date("2027-02-12") || localDate(e.Start, loc) != date("2027-02-13") {
 		t.Fatalf("window %s listed on %s; want one after midnight listed on the evening's date", e.Start.In(loc), e.Date.Format(time.DateOnly))
 	}
-	title, desc := describe(newSiteInfo(s), e)
+	title, _, desc := describe(newSiteInfo(s), e)
 	if !strings.Contains(title, "night of 12–13 February 2027") || !strings.Contains(desc, "+1 day to") || !strings.HasPrefix(desc, "Dark sky on the night of 12–13 February 2027 from 01:") {
 		t.Errorf("title %q, description %q", title, desc)
 	}
 	// a window's length is written as every other duration: "14 h 02 min"
 	e.End = e.Start.Add(14*time.Hour + 2*time.Minute)
-	if title, desc := describe(newSiteInfo(s), e); !strings.HasPrefix(title, "Dark sky, 14 h 02 min, night of") || !strings.Contains(desc, "(14 h 02 min)") {
+	if title, _, desc := describe(newSiteInfo(s), e); !strings.HasPrefix(title, "Dark sky, 14 h 02 min, night of") || !strings.Contains(desc, "(14 h 02 min)") {
 		t.Errorf("title %q, description %q", title, desc)
 	}
 	n := Note{Kind: mustKinds(t, "dark-window")[0], Date: date("2027-02-13"), State: astro.AlwaysBelow}
-	title, desc = describeNote(newSiteInfo(s), n)
+	title, _, desc = describeNote(newSiteInfo(s), n)
 	if !strings.HasPrefix(title, "No dark sky on the night of 13–14 February 2027") {
 		t.Errorf("note %q", title)
 	}
@@ -920,7 +920,7 @@ func TestSkylineMoon(t *testing.T) {
 		}
 		// the entry says it is over the skyline; what that means is in
 		// the calendar's description
-		_, desc := describe(newSiteInfo(s), e)
+		_, _, desc := describe(newSiteInfo(s), e)
 		if !strings.HasPrefix(desc, plainNames[e.Kind.Name]+" over the skyline at ") || strings.Contains(desc, "limb") {
 			t.Errorf("%s: %q", e.Kind.Name, desc)
 		}

@@ -61,7 +61,7 @@ func TestDarkWindowMoonlitNote(t *testing.T) {
 	if len(events) != 0 || len(notes) != 1 || notes[0].State != astro.AlwaysBelow {
 		t.Fatalf("events %v, notes %+v: want one note, always-below (the Moon up and bright)", events, notes)
 	}
-	if title, _ := describeNote(newSiteInfo(s), notes[0]); title != "No dark sky on the night of 21–22 January 2027: the Moon is up and bright all through the astronomical night" {
+	if title, _, _ := describeNote(newSiteInfo(s), notes[0]); title != "No dark sky on the night of 21–22 January 2027: the Moon is up and bright all through the astronomical night" {
 		t.Errorf("note %q", title)
 	}
 }

@@ -53,7 +53,7 @@ func TestDescriptionsOwnPerKind(t *testing.T) {
 		if _, done := described[name]; done {
 			continue
 		}
-		_, desc := describe(info, e)
+		_, _, desc := describe(info, e)
 		if m := kindMeanings(site, []config.KindSpec{{Kind: e.Kind}}); len(m) > 0 {
 			desc += "\n" + strings.Join(m, "\n")
 		}
@@ -125,7 +125,7 @@ func TestDirectionWords(t *testing.T) {
 	for _, e := range events {
 		w := DirectionWord(e)
 		words[e.Kind.Name+" "+w] = true
-		title, desc := describe(newSiteInfo(site), e)
+		title, _, desc := describe(newSiteInfo(site), e)
 		if !strings.Contains(title, w) || !strings.Contains(desc, w) {
 			t.Errorf("%s %s: the text does not say %q: %s / %s", e.Kind, e.Start, w, title, desc)
 		}
@@ -330,7 +330,7 @@ func TestWhereNamesCoordinatesOnce(t *testing.T) {
 // knowledge), so about once a month a date has none.
 func TestMoonTransitNoteReads(t *testing.T) {
 	s := site(t, "Cairnmoor", 39.08, -105.42, "America/Denver")
-	title, desc := describeMoonNote(newSiteInfo(s), Note{Kind: mustKinds(t, "moon-transit")[0], Date: date("2026-12-23")})
+	title, _, desc := describeMoonNote(newSiteInfo(s), Note{Kind: mustKinds(t, "moon-transit")[0], Date: date("2026-12-23")})
 	if title != "No Moon transit today: the Moon crosses the meridian about 50 minutes later each day" ||
 		desc != "No Moon transit on this date: the Moon crosses the meridian about 50 minutes later each day." {
 		t.Errorf("title %q\ndescription %q", title, desc)

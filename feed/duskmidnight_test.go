@@ -197,12 +197,12 @@ func TestDawnNoteSpeaksOfLastNight(t *testing.T) {
 		}
 		if n := notes[1]; n.State != astro.AlwaysAbove || !nearInstant(n.Dusk, tc.dusk) {
 			t.Errorf("%s %s: %+v; want always-above with this evening's dusk %s", tc.kind, tc.last, n, tc.dusk)
-		} else if title, desc := describeNote(newSiteInfo(s), n); !strings.HasPrefix(title, "No "+strings.TrimSuffix(tc.kind, "-dawn")+" dawn today: ") || desc != tc.desc {
+		} else if title, _, desc := describeNote(newSiteInfo(s), n); !strings.HasPrefix(title, "No "+strings.TrimSuffix(tc.kind, "-dawn")+" dawn today: ") || desc != tc.desc {
 			t.Errorf("%s %s: %q\n%q\nwant %q", tc.kind, tc.last, title, desc, tc.desc)
 		}
 		if n := notes[0]; n.State != astro.AlwaysAbove || !n.Dusk.IsZero() {
 			t.Errorf("%s %s: %+v; want the night's note without a dusk", tc.kind, tc.before, n)
-		} else if title, _ := describeNote(newSiteInfo(s), n); !strings.Contains(title, "lasts all night") {
+		} else if title, _, _ := describeNote(newSiteInfo(s), n); !strings.Contains(title, "lasts all night") {
 			t.Errorf("%s %s: %q", tc.kind, tc.before, title)
 		}
 	}
@@ -226,7 +226,7 @@ func TestDuskNoteAfterADawnGivesTheDusk(t *testing.T) {
 	if n.State != astro.Crosses || n.Dusk.Sub(want).Abs() > time.Second {
 		t.Fatalf("%+v; want no-event with this evening's dusk %v", n, want)
 	}
-	if _, desc := describeNote(newSiteInfo(s), n); !strings.HasPrefix(desc, "No nautical dusk on this date: this evening's comes after midnight, at 00:11:0") || !strings.HasSuffix(desc, " CEST on Sun 11 Apr.") {
+	if _, _, desc := describeNote(newSiteInfo(s), n); !strings.HasPrefix(desc, "No nautical dusk on this date: this evening's comes after midnight, at 00:11:0") || !strings.HasSuffix(desc, " CEST on Sun 11 Apr.") {
 		t.Errorf("%q", desc)
 	}
 }

@@ -24,8 +24,12 @@ type Entry struct {
 	UID string
 	// Kind is the configured kind name, e.g. "sunrise", "golden-hour",
 	// "sun-altitude:-3", "photoperiod:12h".
-	Kind        string
-	Title       string
+	Kind  string
+	Title string
+	// row is the title as a row of the entry's date among other dates
+	// shows it (RowTitle), written with the title when it says otherwise;
+	// empty when the row shows Title.
+	row         string
 	Description string
 	// Categories are plain words for filtering, e.g. {"Sun", "Sunrise"}.
 	Categories []string

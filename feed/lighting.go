@@ -714,7 +714,8 @@ func (c shownClock) appendSecond(b []byte) []byte {
 // numbers.
 type lightingText struct {
 	key lightingKey
-	// the title's end: ", to reach 16 h)" and "; 16 h not reached)"
+	// the title's end, before its bracket: ", to reach 16 h" and "; 16 h
+	// not reached"
 	reached, notReached string
 	// after the period's length in the description, up to the natural
 	// day's: ").\nNatural day " ("Direct Sun over the skyline " with a
@@ -767,7 +768,7 @@ func (w *entryWriter) lightingText(spec *config.KindSpec) *lightingText {
 		natural = "Direct Sun over the skyline "
 	}
 	lt := &lightingText{key: key, goal: "; target " + target + ".\n",
-		reached: ", to reach " + target + ")", notReached: "; " + target + " not reached)",
+		reached: ", to reach " + target, notReached: "; " + target + " not reached",
 		open: ").\n" + natural, centred: "), centred on solar noon.\n" + natural,
 		near: "), as near solar noon as the limits allow.\n" + natural}
 	lim := limitsOf(*spec)
@@ -833,8 +834,11 @@ func otherPart(part string) string {
 // appendDescription appends the description of a lamp period to dst and
 // its title to title: "Evening lamps on at 16:15:43 CET, off at 23:00:00
 // CET (6 h 44 min).\nNatural day 8 h 32 min; target 16 h.", and why the
-// period is clipped or longer than its share when it is.
-func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Event) ([]byte, []byte) {
+// period is clipped or longer than its share when it is. It returns the
+// title ("Lamps on 16:16–23:00 (6 h 44 min, to reach 16 h)") and after it,
+// in title's array, its form in a row of the date (RowTitle), where the
+// times stand in their own column: "Lamps on for 6 h 44 min, to reach 16 h".
+func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Event) (_, _, row []byte) {
 	on, off := shownAt(e.Start, s.zone), shownAt(e.End, s.zone)
 	// "Lamps on 16:16–23:00", the dash in UTF-8
 	t := append(title, 'L', 'a', 'm', 'p', 's', ' ', 'o', 'n', ' ',
@@ -853,11 +857,12 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	lamp := len(t)
 	t = appendHM(t, e.Lamp) // as the natural day below
 	lampHM := t[lamp:]
+	end := lt.reached
 	if e.Short {
-		t = append(t, lt.notReached...)
-	} else {
-		t = append(t, lt.reached...)
+		end = lt.notReached
 	}
+	t = append(append(t, end...), ')')
+	row = append(append(append(t[len(t):], "Lamps on for "...), lampHM...), end...)
 	pi := partIndex(e.Part)
 	if pi < 2 && e.MadeUp <= 0 {
 		// a morning or evening period that makes up for no other (nearly
@@ -881,7 +886,7 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 			}
 		}
 		b = append(b, lt.open...)
-		return append(appendHM(b, e.DayLength), lt.tail[pi][b2i(e.Clipped)][b2i(e.Short)]...), t
+		return append(appendHM(b, e.DayLength), lt.tail[pi][b2i(e.Clipped)][b2i(e.Short)]...), t, row
 	}
 	whole := e.Part == partPolarNight || e.Part == partBehindSkyline // one period round solar noon
 	b := dst
@@ -951,7 +956,7 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	case e.Short:
 		b = append(b, "The target is not reached today.\n"...)
 	}
-	return b[:len(b)-1], t // without the last line's newline
+	return b[:len(b)-1], t, row // without the last line's newline
 }
 
 // sentenceHM appends hm(d) at the start of a sentence: "Under 1 min", not

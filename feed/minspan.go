@@ -49,11 +49,12 @@ func (c *collector) noteUnderMinimum(spec config.KindSpec, n0 int) {
 	}
 }
 
-// underMinimumText is the title and the end of the description of a note
-// from noteUnderMinimum: "No dark sky of 45 min or more on the night of
-// 3–4 May 2027: the longest dark window is 9 min" and ", under the 45 min
+// underMinimumText is the title, its row's form (onDate) and the end of
+// the description of a note from noteUnderMinimum: "No dark sky of 45 min
+// or more on the night of 3–4 May 2027: the longest dark window is 9 min",
+// "No dark sky of 45 min or more on this night: …" and ", under the 45 min
 // minimum".
-func underMinimumText(n Note) (title, why string) {
+func underMinimumText(n Note) (title, row, why string) {
 	minimum := amount(n.Minimum)
 	longest := hm(n.Longest)
 	if n.Longest.Round(time.Minute) >= n.Minimum {
@@ -63,12 +64,13 @@ func underMinimumText(n Note) (title, why string) {
 	var what string
 	switch n.Kind.Name {
 	case "dark-window":
-		return "No dark sky of " + minimum + " or more on the " + NightOf(n.Date) + ": the longest dark window is " + longest,
-			", under the " + minimum + " minimum"
+		title, row = onNight("No dark sky of "+minimum+" or more", n.Date, ": the longest dark window is "+longest)
+		return title, row, ", under the " + minimum + " minimum"
 	case config.KindSunBand:
 		what = "No span with the " + bandBase(n.Kind.Altitude, n.Kind.High)
 	default:
 		what = "No " + strings.ToLower(plainNames[n.Kind.Name])
 	}
-	return what + " of " + minimum + " or more today: the longest is " + longest, ", under the " + minimum + " minimum"
+	title, row = onDate(what+" of "+minimum+" or more", "today", ": the longest is "+longest)
+	return title, row, ", under the " + minimum + " minimum"
 }

@@ -270,13 +270,14 @@ func moonMeaning(s *config.Site, kind string, maxLit float64) string {
 	return ""
 }
 
-// describeMoon gives the title and description of a Moon event: its own
+// describeMoon gives the title, its row's form (describe) and the
+// description of a Moon event: its own
 // times and numbers; what the kind means is in the calendar's description
 // (moonMeaning), as is the site (LOCATION and GEO).
-func describeMoon(s *siteInfo, e Event) (string, string) {
+func describeMoon(s *siteInfo, e Event) (title, row, desc string) {
 	loc := s.TimeZone.Location
 	at := localClock(e.Start, loc)
-	title := plainNames[e.Kind.Name]
+	title = plainNames[e.Kind.Name]
 	var b strings.Builder
 	switch e.Kind.Name {
 	case "new-moon", "first-quarter", "full-moon", "last-quarter":
@@ -299,18 +300,20 @@ func describeMoon(s *siteInfo, e Event) (string, string) {
 		fmt.Fprintf(&b, " (%s, %s lit).", waxing(e), percent(e.Illuminated))
 	case "dark-window":
 		length := hm(ToSecond(e.End).Sub(ToSecond(e.Start)))
-		title = fmt.Sprintf("Dark sky, %s, %s", length, NightOf(e.Date))
+		// the night is the row's (RowTitle)
+		row = "Dark sky, " + length
+		title = row + ", " + NightOf(e.Date)
 		fmt.Fprintf(&b, "Dark sky on the %s from %s%s to %s%s (%s).",
 			NightOf(e.Date), at, DayMark(e.Start, e.Date, loc), localClock(e.End, loc), DayMark(e.End, e.Date, loc), length)
 	default:
-		return e.Kind.String(), fmt.Sprintf("%s at %s.", e.Kind, at)
+		return e.Kind.String(), "", fmt.Sprintf("%s at %s.", e.Kind, at)
 	}
-	return title, b.String()
+	return title, row, b.String()
 }
 
-// describeMoonNote gives the all-day entry for a date without a Moon event.
-func describeMoonNote(s *siteInfo, n Note) (string, string) {
-	var title string
+// describeMoonNote gives the all-day entry for a date without a Moon event,
+// as describeNote does.
+func describeMoonNote(s *siteInfo, n Note) (title, row, desc string) {
 	switch n.Kind.Name {
 	case "moonrise", "moonset":
 		verb := map[string]string{"moonrise": "rise", "moonset": "set"}[n.Kind.Name]
@@ -324,12 +327,13 @@ func describeMoonNote(s *siteInfo, n Note) (string, string) {
 		case n.State == astro.AlwaysBelow:
 			title = "The Moon stays below the horizon all day"
 		default:
-			return fmt.Sprintf("No moon%s today", verb), fmt.Sprintf("No moon%s on this date: the Moon %ss about 50 minutes later each day.", verb, verb)
+			title, row = onDate("No moon"+verb, "today", "")
+			return title, row, row + ": the Moon " + verb + "s about 50 minutes later each day."
 		}
 	case "moon-transit":
 		// the site and the date are the entry's LOCATION and date
-		const why = "the Moon crosses the meridian about 50 minutes later each day"
-		return "No Moon transit today: " + why, "No Moon transit on this date: " + why + "."
+		title, row = onDate("No Moon transit", "today", ": the Moon crosses the meridian about 50 minutes later each day")
+		return title, row, row + "."
 	case "dark-window":
 		why := "the Moon is up and bright all through the astronomical night"
 		switch {
@@ -338,11 +342,11 @@ func describeMoonNote(s *siteInfo, n Note) (string, string) {
 		case len(s.Skyline) > 0:
 			why = "the Moon is over the skyline and bright all through the astronomical night"
 		}
-		title = "No dark sky on the " + NightOf(n.Date) + ": " + why
-		return title, title + "."
+		title, row = onNight("No dark sky", n.Date, ": "+why)
+		return title, row, title + "."
 	default:
 		title = n.Kind.String()
 	}
 	// the site and the date are the entry's LOCATION and date
-	return title, title + "."
+	return title, "", title + "."
 }

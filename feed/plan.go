@@ -849,7 +849,7 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 		if n, ok := kt.note(d); ok {
 			// the note's title as the reason in brackets, within the
 			// sentence: "(polar night: the Sun does not rise today)"
-			t, _ := describeNote(w.site, n)
+			t, _, _ := describeNote(w.site, n)
 			if t != "" && t[0] >= 'A' && t[0] <= 'Z' {
 				t = string(t[0]+'a'-'A') + t[1:]
 			}

@@ -940,23 +940,26 @@ func offsetTitle(offset time.Duration, title string) string {
 // amount is Amount: "30 min", "1 h", "1 h 15 min", "45 s".
 func amount(d time.Duration) string { return Amount(d) }
 
-// describe gives the title and plain-language description of an event.
-func describe(s *siteInfo, e Event) (string, string) {
+// describe gives the title, its form in a row of the event's date among
+// other dates when that says otherwise (RowTitle), and the plain-language
+// description of an event.
+func describe(s *siteInfo, e Event) (title, row, desc string) {
 	if b, title, ok := appendDaily(nil, s, &e); ok {
-		return title, string(b)
+		return title, "", string(b)
 	}
 	loc := s.TimeZone.Location
 	at := localClock(e.Start, loc)
 	var b strings.Builder
 	b.Grow(320)
-	title := plainNames[e.Kind.Name]
+	title = plainNames[e.Kind.Name]
 	switch e.Kind.Name {
 	case "noon-clear":
 		if e.Direction == astro.Rising {
 			title = "The noon Sun clears the skyline again"
 			fmt.Fprintf(&b, "From today the Sun is over the skyline at solar noon (%s, %s high).", at, degrees(e.Altitude))
 		} else {
-			title = "The noon Sun stays behind the skyline from today"
+			const stays = "The noon Sun stays behind the skyline from "
+			title, row = stays+"today", stays+"this date"
 			fmt.Fprintf(&b, "From today the Sun is behind the skyline at solar noon (%s, %s high), until it clears it again.", at, degrees(e.Altitude))
 		}
 	case "sun-hidden":
@@ -1039,22 +1042,23 @@ func describe(s *siteInfo, e Event) (string, string) {
 			fmt.Fprintf(&b, "%s today: the Sun is up for %s (%s from the day before), sunrise to sunset.", title, length, change)
 		}
 	case "solar-eclipse", "lunar-eclipse":
-		return describeEclipse(s, e)
+		title, desc = describeEclipse(s, e)
+		return title, "", desc
 	default:
 		return describeMoon(s, e)
 	}
-	return title, b.String()
+	return title, row, b.String()
 }
 
 // appendDescription appends the description of e to b and returns the
-// title: describe without its intermediate strings for the daily kinds
-// that make up most feeds (see appendDaily).
-func appendDescription(b []byte, s *siteInfo, e *Event) ([]byte, string) {
+// title and its row's form: describe without its intermediate strings for
+// the daily kinds that make up most feeds (see appendDaily).
+func appendDescription(b []byte, s *siteInfo, e *Event) (_ []byte, title, row string) {
 	if b, title, ok := appendDaily(b, s, e); ok {
-		return b, title
+		return b, title, ""
 	}
-	title, desc := describe(s, *e)
-	return append(b, desc...), title
+	title, row, desc := describe(s, *e)
+	return append(b, desc...), title, row
 }
 
 // longDayEnd is what a sunset that ends the midnight Sun says in place of
@@ -1388,39 +1392,45 @@ func FormatCount(n int) string {
 	return b.String()
 }
 
-// describeNote gives the all-day entry for a date without an event.
-func describeNote(s *siteInfo, n Note) (string, string) {
+// describeNote gives the all-day entry for a date without an event: its
+// title, the title's form in a row of the date among other dates when that
+// says otherwise (RowTitle), and its description.
+func describeNote(s *siteInfo, n Note) (title, row, desc string) {
 	above := n.State == astro.AlwaysAbove
-	var title, desc string
 	if n.Kind.Name == "photoperiod" {
 		t := NotReachedText(n)
-		return t, t + ": no date of this calendar crosses it."
+		return t, "", t + ": no date of this calendar crosses it."
 	}
 	if n.Longest > 0 {
-		title, why := underMinimumText(n)
-		return title, title + why + "."
+		var why string
+		title, row, why = underMinimumText(n)
+		return title, row, title + why + "."
 	}
 	if n.State == astro.Crosses && !n.Kind.IsMoon() {
-		title, desc = noEventToday(n.Kind)
+		title, row, desc = noEventToday(n.Kind)
 		if !n.Dusk.IsZero() {
 			// the evening's dusk is known: it comes after midnight
 			loc := s.TimeZone.Location
 			desc = fmt.Sprintf("No %s on this date: this evening's comes after midnight, at %s on %s",
 				strings.ToLower(plainNames[n.Kind.Name]), localClock(n.Dusk, loc), ToSecond(n.Dusk).In(loc).Format("Mon 2 Jan"))
 		}
-		return title, desc + "."
+		return title, row, desc + "."
 	}
 	switch n.Family {
 	case "sun-horizon":
 		switch {
 		case len(s.Skyline) > 0 && above:
-			title, desc = "The Sun stays over the skyline all day: no sunset today", "The Sun stays over the site's skyline all day and night"
+			title, row = onDate("The Sun stays over the skyline all day: no sunset", "today", "")
+			desc = "The Sun stays over the site's skyline all day and night"
 		case n.Hidden:
-			title, desc = "No direct Sun today: the Sun stays behind the skyline", "The Sun is up but does not get over the site's skyline all day"
+			title, row = onDate("No direct Sun", "today", ": the Sun stays behind the skyline")
+			desc = "The Sun is up but does not get over the site's skyline all day"
 		case above:
-			title, desc = "Midnight sun: the Sun does not set today", "The Sun stays above the horizon all day and night"
+			title, row = onDate("Midnight sun: the Sun does not set", "today", "")
+			desc = "The Sun stays above the horizon all day and night"
 		default:
-			title, desc = "Polar night: the Sun does not rise today", "The Sun stays below the horizon all day"
+			title, row = onDate("Polar night: the Sun does not rise", "today", "")
+			desc = "The Sun stays below the horizon all day"
 		}
 	case "civil", "nautical", "astronomical":
 		deg := map[string]string{"civil": "6°", "nautical": "12°", "astronomical": "18°"}[n.Family]
@@ -1428,23 +1438,25 @@ func describeNote(s *siteInfo, n Note) (string, string) {
 		case above && n.SunUp && len(s.Skyline) > 0:
 			// the twilights are counted from the flat horizon, and the Sun
 			// may set behind the skyline that day: not "does not set"
-			title = fmt.Sprintf("No %s dusk or dawn today: the Sun stays above the flat horizon", n.Family)
+			title, row = onDate("No "+n.Family+" dusk or dawn", "today", ": the Sun stays above the flat horizon")
 			desc = "The Sun stays above the flat horizon all day and night (the twilights are counted from it, not from the site's skyline)"
 		case above && n.SunUp:
-			title = fmt.Sprintf("No %s dusk or dawn today: the Sun does not set", n.Family)
+			title, row = onDate("No "+n.Family+" dusk or dawn", "today", ": the Sun does not set")
 			desc = "The Sun stays above the horizon all day and night"
 		case above && !n.Dusk.IsZero():
 			// the last date without a dawn: the night before had none,
 			// this evening has its dusk
 			loc := s.TimeZone.Location
-			title = fmt.Sprintf("No %s dawn today: %s twilight lasted all last night", n.Family, n.Family)
+			head := "No " + n.Family + " dawn"
+			title = head + " today: " + n.Family + " twilight lasted all last night"
+			row = head + " on this date: " + n.Family + " twilight lasted all the night before"
 			desc = fmt.Sprintf("The Sun's centre stayed less than %s below the horizon all last night; this evening's %s dusk comes after midnight, at %s on %s",
 				deg, n.Family, localClock(n.Dusk, loc), ToSecond(n.Dusk).In(loc).Format("Mon 2 Jan"))
 		case above:
-			title = fmt.Sprintf("No %s dusk or dawn tonight: %s twilight lasts all night", n.Family, n.Family)
+			title, row = onDate("No "+n.Family+" dusk or dawn", "tonight", ": "+n.Family+" twilight lasts all night")
 			desc = fmt.Sprintf("The Sun's centre stays less than %s below the horizon all night", deg)
 		default:
-			title = fmt.Sprintf("No %s twilight today: the Sun stays more than %s below the horizon", n.Family, deg)
+			title, row = onDate("No "+n.Family+" twilight", "today", ": the Sun stays more than "+deg+" below the horizon")
 			desc = title
 		}
 	default:
@@ -1452,10 +1464,10 @@ func describeNote(s *siteInfo, n Note) (string, string) {
 		case "golden-hour", "blue-hour":
 			name := strings.ToLower(plainNames[n.Kind.Name])
 			if above {
-				title = fmt.Sprintf("No %s today: the Sun stays too high", name)
+				title, row = onDate("No "+name, "today", ": the Sun stays too high")
 				desc = fmt.Sprintf("The Sun's centre stays above the %s's altitudes all day and night", name)
 			} else {
-				title = fmt.Sprintf("No %s today: the Sun stays too low", name)
+				title, row = onDate("No "+name, "today", ": the Sun stays too low")
 				desc = fmt.Sprintf("The Sun's centre stays below the %s's altitudes all day", name)
 			}
 		case config.KindSunBand: // the band's bounds as its spans' titles write them
@@ -1477,7 +1489,22 @@ func describeNote(s *siteInfo, n Note) (string, string) {
 		}
 	}
 	// the site and the date are the entry's LOCATION and date
-	return title, desc + "."
+	return title, row, desc + "."
+}
+
+// onDate is the title of a note that names its date as a calendar app shows
+// the note on it, head, when ("today", "tonight") and tail, and the title's
+// form in a row of the date among other dates (RowTitle), which says "on
+// this date" instead.
+func onDate(head, when, tail string) (title, row string) {
+	return head + " " + when + tail, head + " on this date" + tail
+}
+
+// onNight is onDate for a note of a night: "on the night of 5–6 December
+// 2026", the night that begins on the evening of d, is "on this night" in
+// a row.
+func onNight(head string, d time.Time, tail string) (title, row string) {
+	return head + " on the " + NightOf(d) + tail, head + " on this night" + tail
 }
 
 // NotReachedText says that a photoperiod threshold is not crossed in a
@@ -1542,27 +1569,27 @@ func NotReachedText(n Note) string {
 	return fmt.Sprintf("%s %s (%s %s, %s%s)", what, when, extreme, length, n.ExtremeDate.Format("2 January"), out)
 }
 
-// noEventToday gives the title and the explanation of a date on which a
-// Sun kind has no event although the Sun crosses its threshold on the dates
-// around it.
-func noEventToday(k config.Kind) (string, string) {
+// noEventToday gives the title, its row's form (onDate) and the
+// explanation of a date on which a Sun kind has no event although the Sun
+// crosses its threshold on the dates around it.
+func noEventToday(k config.Kind) (title, row, desc string) {
 	name := strings.ToLower(plainNames[k.Name])
 	switch k.Name {
 	case "solar-noon":
-		return "No solar noon today", "No solar noon on this date: the Sun crosses the meridian just before the date begins and just after it ends"
+		title, row = onDate("No solar noon", "today", "")
+		return title, row, "No solar noon on this date: the Sun crosses the meridian just before the date begins and just after it ends"
 	case "golden-hour", "blue-hour":
-		return fmt.Sprintf("No %s begins today", name),
-			fmt.Sprintf("No %s begins on this date: the one that began before it lasts into it", name)
+		title, row = onDate("No "+name+" begins", "today", "")
+		return title, row, row + ": the one that began before it lasts into it"
 	case "sun-altitude":
 		name = "crossing of " + degrees(k.Altitude)
 	case config.KindSunBand:
 		// the band in the words of its spans' titles: "Sun between −3° and +3°"
-		band := bandBase(k.Altitude, k.High)
-		return "No span with the " + band + " begins today",
-			"No span with the " + band + " begins on this date: the one that began before it lasts into it"
+		title, row = onDate("No span with the "+bandBase(k.Altitude, k.High)+" begins", "today", "")
+		return title, row, row + ": the one that began before it lasts into it"
 	}
-	return fmt.Sprintf("No %s today", name),
-		fmt.Sprintf("No %s on this date: around this time of year it comes close to midnight and moves from one date to the next", name)
+	title, row = onDate("No "+name, "today", "")
+	return title, row, row + ": around this time of year it comes close to midnight and moves from one date to the next"
 }
 
 // describeSummary gives the daily summary of date d: sunrise, sunset, day
@@ -1597,7 +1624,7 @@ func describeSummary(s *siteInfo, d time.Time, length, delta time.Duration, evs 
 		if n.SunUp && midnightSun {
 			continue // "Midnight sun: the Sun does not set today" says it
 		}
-		t, _ := describeNote(s, n)
+		t, _, _ := describeNote(s, n)
 		if !slices.Contains(said, t) {
 			said = append(said, t)
 			b.WriteString(t + ".\n")

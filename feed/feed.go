@@ -57,6 +57,8 @@ type Facts struct {
 	Part        string          // "morning", "evening", "all-day", "polar-night", "behind-skyline"…
 	Direction   astro.Direction // threshold crossings: rising or setting
 	Note        bool            // an all-day note for a date without the event
+	NextDay     bool            // plans: the end falls on the next local date
+	Open        bool            // bands: not left before the window ends; End is the window's end
 	State       astro.State     // notes: on which side the Sun or Moon stays
 	Until       time.Time       // lighting notes: first date lamps are needed again (zero: not in the window)
 	Altitude    float64         // degrees (solar noon, Moon transit)
@@ -66,12 +68,10 @@ type Facts struct {
 	DayLength   time.Duration   // the natural day on the date
 	DirectSun   bool            // DayLength is the hours of direct Sun over the site's skyline
 	LongDay     bool            // a sunset that ends the midnight Sun: no day length (DayLength 0)
+	Short       bool            // lighting: clipped, the target is not reached
 	DayChange   time.Duration   // daily summary: change from the day before
 	Lamp        time.Duration   // lighting: the lamp period's length
-	Short       bool            // lighting: clipped, the target is not reached
 	Longest     time.Duration   // span notes: the date's spans are all under min_duration, the longest is this long
-	NextDay     bool            // plans: the end falls on the next local date
-	Open        bool            // bands: not left before the window ends; End is the window's end
 	Missing     string          // plans: the start event that does not happen on the date
 	Eclipse     *EclipseFacts   // eclipses: the local circumstances; nil for other kinds
 }

@@ -1076,15 +1076,25 @@ func movedClock(ts config.TimeSpec, t time.Time, z *zoneCache) (clockMove, bool)
 // when its date is said beside it (not dated), "moved from 00:30, which the
 // clocks skip: they go forward for summer time by 1 h".
 func (m clockMove) words(dated bool) string {
-	how := "forward"
-	if m.t.IsDST() {
-		how = "forward for summer time"
-	}
+	change := clocksGo(true, m.t.IsDST(), m.by)
 	if !dated {
-		return fmt.Sprintf("moved from %s, which the clocks skip: they go %s by %s", clockText(m.written), how, amount(m.by))
+		return "moved from " + clockText(m.written) + ", which the clocks skip: they " + change
 	}
-	return fmt.Sprintf("moved from %s, which the clocks skip on %s: the clocks go %s by %s", clockText(m.written),
-		m.t.Format("Mon 2 Jan 2006"), how, amount(m.by))
+	return "moved from " + clockText(m.written) + ", which the clocks skip on " + m.t.Format("Mon 2 Jan 2006") + ": the clocks " + change
+}
+
+// clocksGo says how the clocks change, by how much: "go forward for summer
+// time by 1 h" when forward into summer time, "go back from summer time by
+// 1 h" when back out of it, "go forward by 30 min" for another change.
+func clocksGo(forward, summer bool, by time.Duration) string {
+	how, season := "back", " from summer time"
+	if forward {
+		how, season = "forward", " for summer time"
+	}
+	if !summer {
+		season = ""
+	}
+	return "go " + how + season + " by " + amount(by)
 }
 
 // skipped is the span of clock times skipped by the change of offset that
@@ -1140,12 +1150,9 @@ func goBack(start, end time.Time, loc *time.Location) (words string, across bool
 	if by <= 0 || !across && change.Sub(start) > by { // the repeated hour's first reading is shown twice too
 		return "", false
 	}
-	how := "back"
-	if s.IsDST() && !change.In(loc).IsDST() {
-		how = "back from summer time"
-	}
+	summer := s.IsDST() && !change.In(loc).IsDST()
 	at := change.In(time.FixedZone(abbr, off)) // the clock before the change
-	return fmt.Sprintf(" (on %s at %s the clocks go %s by %s)", at.Format("Mon 2 Jan 2006"), at.Format("15:04 ")+ZoneLabel(abbr), how, amount(by)), across
+	return " (on " + at.Format("Mon 2 Jan 2006") + " at " + at.Format("15:04 ") + ZoneLabel(abbr) + " the clocks " + clocksGo(false, summer, by) + ")", across
 }
 
 // appendMoved appends what follows a plan's time shown: " the next day (Sun

@@ -3,6 +3,7 @@ package feed
 import (
 	"context"
 	"fmt"
+	"math"
 	"slices"
 	"sort"
 	"strings"
@@ -923,7 +924,7 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 	// across the change to, else after a start the clocks show twice
 	back, across := "", false
 	if pl.start.IsClock || pl.end != nil && pl.end.IsClock {
-		back, across = goBack(start, en.End, z.loc)
+		back, across = goBack(start, en.End, z)
 	}
 	if back != "" && !across {
 		b = append(b, back...)
@@ -1136,23 +1137,23 @@ func bothMovedWords(start, end clockMove) string {
 // when the change comes after start, not after end, and "" when there is
 // none: the clocks show start's reading again after the change (a start
 // in the repeated hour, the first of the two: see clockOn), or end is at
-// or after it.
-func goBack(start, end time.Time, loc *time.Location) (words string, across bool) {
-	s := start.In(loc)
-	abbr, off := s.Zone()
-	_, change := s.ZoneBounds()
-	if change.IsZero() {
-		return "", false
+// or after it. The zone's next change after start is the end of its
+// period in z.
+func goBack(start, end time.Time, z *zoneCache) (words string, across bool) {
+	label, off := z.at(start.Unix())
+	if z.to == math.MaxInt64 {
+		return "", false // no change after start
 	}
-	_, after := change.In(loc).Zone()
+	change := time.Unix(z.to, 0)
+	_, after := z.at(z.to)
 	by := time.Duration(off-after) * time.Second
 	across = !end.IsZero() && !change.After(end)
 	if by <= 0 || !across && change.Sub(start) > by { // the repeated hour's first reading is shown twice too
 		return "", false
 	}
-	summer := s.IsDST() && !change.In(loc).IsDST()
-	at := change.In(time.FixedZone(abbr, off)) // the clock before the change
-	return " (on " + at.Format("Mon 2 Jan 2006") + " at " + at.Format("15:04 ") + ZoneLabel(abbr) + " the clocks " + clocksGo(false, summer, by) + ")", across
+	summer := start.In(z.loc).IsDST() && !change.In(z.loc).IsDST()
+	at := change.In(time.FixedZone(label, int(off))) // the clock before the change
+	return " (on " + at.Format("Mon 2 Jan 2006") + " at " + at.Format("15:04 ") + label + " the clocks " + clocksGo(false, summer, by) + ")", across
 }
 
 // appendMoved appends what follows a plan's time shown: " the next day (Sun

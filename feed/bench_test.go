@@ -50,6 +50,23 @@ func benchDays(b *testing.B, lat, lon float64, zone string, days int) (s *config
 	return s, first, last, sk, daily
 }
 
+// planDays is the setup of the plans' benchmarks: the site at lat, lon
+// in zone, the local dates first..last of 400 days from 2027-01-01, and a
+// Sky for them and the plans' margin.
+func planDays(b *testing.B, lat, lon float64, zone string) (s *config.Site, first, last time.Time, sk *Sky) {
+	s = &config.Site{ID: "b", Name: "Bench", Latitude: lat, Longitude: lon}
+	if err := s.TimeZone.UnmarshalText([]byte(zone)); err != nil {
+		b.Fatal(err)
+	}
+	first = time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC)
+	last = first.AddDate(0, 0, 399)
+	sk, err := NewSky(first.AddDate(0, 0, -PlanMargin), last.AddDate(0, 0, PlanMargin))
+	if err != nil {
+		b.Fatal(err)
+	}
+	return s, first, last, sk
+}
+
 // plansLighting is the setup of the lighting and plans benchmarks: one
 // site, a Sky for 400 days (and the plans' margin), and four feeds: "base"
 // has the daily kinds of BenchmarkEntriesSiteYear; "with" adds a
@@ -60,16 +77,7 @@ func benchDays(b *testing.B, lat, lon float64, zone string, days int) (s *config
 // for every feed (the Moon's phases of a date rule) and the heap's first
 // growth are not a build's cost.
 func plansLighting(b *testing.B) (build func(*config.Feed) int, variants []plansVariant) {
-	s := &config.Site{ID: "b", Name: "Bench", Latitude: 48.2, Longitude: 16.4}
-	if err := s.TimeZone.UnmarshalText([]byte("Europe/Vienna")); err != nil {
-		b.Fatal(err)
-	}
-	first := time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC)
-	last := first.AddDate(0, 0, 399)
-	sk, err := NewSky(first.AddDate(0, 0, -PlanMargin), last.AddDate(0, 0, PlanMargin))
-	if err != nil {
-		b.Fatal(err)
-	}
+	s, first, last, sk := planDays(b, 48.2, 16.4, "Europe/Vienna")
 	base := config.Feed{ID: "bench", Site: "b"}
 	for _, n := range []string{"sunrise", "sunset", "civil-dawn", "civil-dusk", "golden-hour"} {
 		k, _ := config.ParseKind(n)
@@ -98,6 +106,24 @@ func plansLighting(b *testing.B) (build func(*config.Feed) int, variants []plans
 		build(v.f)
 	}
 	return build, variants
+}
+
+// BenchmarkPlansClockTimes: two daily plans with clock times in a zone
+// with summer time (Chicago, 400 days from 2027-01-01), one from 22:00 to
+// 23:30, one from sunset to 02:00: every entry asks whether the clocks go
+// back during it (goBack).
+func BenchmarkPlansClockTimes(b *testing.B) {
+	s, first, last, sk := planDays(b, 41.9, -87.6, "America/Chicago")
+	f := &config.Feed{ID: "bench", Site: "b", Plans: []config.Plan{
+		{Title: "Watch", Date: "every day", Start: "22:00", End: "23:30"},
+		{Title: "Night", Date: "every day", Start: "sunset", End: "02:00"},
+	}}
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := sk.Calendar(context.Background(), s, f, first, last, Options{}); err != nil {
+			b.Fatal(err)
+		}
+	}
 }
 
 type plansVariant struct {

@@ -16,6 +16,7 @@ import (
 	"slices"
 	"strconv"
 	"strings"
+	"sync"
 	"testing"
 	"time"
 
@@ -43,6 +44,14 @@ func builderServer(t *testing.T) *httptest.Server {
 // builderServerFor is builderServer for the configuration file at path.
 func builderServerFor(t *testing.T, path string) *httptest.Server {
 	t.Helper()
+	ts := httptest.NewServer(builderHandler(t, path))
+	t.Cleanup(ts.Close)
+	return ts
+}
+
+// builderHandler is the handler of builderServerFor.
+func builderHandler(t *testing.T, path string) http.Handler {
+	t.Helper()
 	cfg, err := config.Load(path)
 	if err != nil {
 		t.Fatal(err)
@@ -62,9 +71,7 @@ func builderServerFor(t *testing.T, path string) *httptest.Server {
 	if err := srv.Refresh(t.Context()); err != nil {
 		t.Fatal(err)
 	}
-	ts := httptest.NewServer(srv.Handler())
-	t.Cleanup(ts.Close)
-	return ts
+	return srv.Handler()
 }
 
 // browser starts a headless chromium with a fresh profile, or skips the
@@ -941,5 +948,54 @@ func TestBrowserTablePrintsRowsWhole(t *testing.T) {
 	}
 	if len(got) != 1 || got[0] != "avoid" {
 		t.Errorf("printed, the table's rows break inside: %q, want \"avoid\" for every row", got)
+	}
+}
+
+// Behind a reverse proxy that serves heliocal under a path of its site
+// (https://sky.example.org/calendars/, the base_url of the README's
+// example, the proxy passing /calendars/… on without the prefix), the page
+// finds its style, script and icon and asks for its preview under that
+// path too, and the table page and its "make another" link stay there:
+// they were asked for at the site's root (/assets/builder.css,
+// /at.json?…), where the proxy has none of them.
+func TestBrowserUnderPathPrefix(t *testing.T) {
+	mux := http.NewServeMux()
+	mux.Handle("/calendars/", http.StripPrefix("/calendars", builderHandler(t, filepath.Join("..", "..", "config", "demo.yaml"))))
+	var mu sync.Mutex
+	var asked []string // what was asked for outside the prefix
+	root := func() []string { mu.Lock(); defer mu.Unlock(); return slices.Clone(asked) }
+	ts := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		if !strings.HasPrefix(r.URL.Path, "/calendars/") {
+			mu.Lock()
+			asked = append(asked, r.URL.Path)
+			mu.Unlock()
+		}
+		mux.ServeHTTP(w, r)
+	}))
+	t.Cleanup(ts.Close)
+	ctx := browser(t)
+	styled := `getComputedStyle(document.body).fontFamily.includes("system-ui")`
+	if err := chromedp.Do(ctx,
+		chromedp.Navigate(ts.URL+"/calendars/"),
+		chromedp.WaitVisible(chromedp.ID("lat")),
+		chromedp.SendKeys(chromedp.ID("lat"), "23.11"),
+		chromedp.SendKeys(chromedp.ID("lon"), "-82.41"),
+		chromedp.Poll[chromedp.Void](`document.querySelector("#preview th") !== null && `+styled),
+	); err != nil {
+		t.Errorf("the page under /calendars/: no styled preview (%v); asked at the root for %q", err, root())
+	}
+	if err := chromedp.Do(ctx,
+		chromedp.Navigate(ts.URL+"/calendars/at?lat=23.11&lon=-82.41&days=2"),
+		chromedp.WaitVisible(chromedp.CSS("table.days")),
+		chromedp.Poll[chromedp.Void](styled),
+	); err != nil {
+		t.Errorf("the table page under /calendars/: not styled (%v); asked at the root for %q", err, root())
+	}
+	another, err := chromedp.Run(ctx, chromedp.Evaluate[string](`[...document.querySelectorAll("a")].find(a => a.textContent === "make another").href`))
+	if err != nil || another != ts.URL+"/calendars/" {
+		t.Errorf("the table page's \"make another\" leads to %q (%v), want %s", another, err, ts.URL+"/calendars/")
+	}
+	if r := root(); len(r) > 0 {
+		t.Errorf("the pages under /calendars/ asked at the site's root for %q", r)
 	}
 }

@@ -280,7 +280,7 @@ func TestTableErrorPage(t *testing.T) {
 		if r.StatusCode != 400 || !strings.HasPrefix(r.Header.Get("Content-Type"), "text/html") || r.Header.Get("Content-Security-Policy") == "" {
 			t.Errorf("/at?%s: %d %q (CSP %q), want 400 text/html under the page's policy", tc.query, r.StatusCode, r.Header.Get("Content-Type"), r.Header.Get("Content-Security-Policy"))
 		}
-		for _, want := range []string{`<html lang="en">`, "<title>This table cannot be shown", `<p class="message">` + tc.says, `<a href="/">`, `href="/assets/builder.css"`} {
+		for _, want := range []string{`<html lang="en">`, "<title>This table cannot be shown", `<p class="message">` + tc.says, `<a href="./">`, `href="assets/builder.css"`} {
 			if !strings.Contains(b, want) {
 				t.Errorf("/at?%s: the page lacks %q:\n%s", tc.query, want, b)
 			}

@@ -180,7 +180,8 @@ function update() {
     }
     const mine = ++seq;
     try {
-      const r = await fetch("/at.json?" + q.params.toString());
+      // relative: a proxy may serve the page under a path of its site
+      const r = await fetch("at.json?" + q.params.toString());
       const text = await r.text();
       if (mine !== seq) return;
       if (!r.ok) {

@@ -104,6 +104,10 @@ func ExampleMoonEphemeris_MoonDays() {
 // with the Moon required to be below the horizon: the nights around the
 // full moon of January 3 have none (the Moon is up all through astronomical
 // night), then the windows grow as the Moon rises later each night.
+// PyEphem 4.1.4 (the Sun's centre at −18°, the Moon's upper limb at −34′,
+// pressure 0) gives the same: dusk 18:08:29, 18:09:27, 18:10:26, 18:11:27
+// and moonrise 18:49:13, 20:10:05, 21:26:06, 22:38:19 CET on January 5..8,
+// cut to the minute as printed here.
 func ExampleMoonEphemeris_DarkWindows() {
 	cet := time.FixedZone("CET", 3600)
 	first := time.Date(2026, 1, 2, 0, 0, 0, 0, cet)

@@ -76,9 +76,13 @@ var compassPoints = [16]string{
 }
 
 // CompassPoint names the nearest of the 16 points of the compass to the
-// azimuth az (degrees from the north through the east), e.g. 118° →
-// "east-south-east".
+// azimuth az (degrees from the north through the east, any value: −10 is
+// "north", 450 "east"), e.g. 118° → "east-south-east". For NaN or an infinity
+// it returns "".
 func CompassPoint(az float64) string {
+	if math.IsNaN(az) || math.IsInf(az, 0) {
+		return ""
+	}
 	az = math.Mod(az, 360)
 	if az < 0 {
 		az += 360

@@ -5,6 +5,7 @@ package astro
 import (
 	"math"
 	"sort"
+	"strconv"
 	"time"
 )
 
@@ -318,8 +319,18 @@ func JulianEphemerisDay(t time.Time) (float64, error) {
 // TimeFromJulianEphemerisDay returns the UTC instant of the Julian Ephemeris
 // Day jde (Terrestrial Time), the inverse of JulianEphemerisDay, to the
 // microsecond. It returns a *RangeError when the instant falls outside
-// MinTime..MaxTime.
+// MinTime..MaxTime (widened by RangeMargin) and an *InputError when jde is
+// NaN or infinite.
 func TimeFromJulianEphemerisDay(jde float64) (time.Time, error) {
+	if math.IsNaN(jde) || math.IsInf(jde, 0) {
+		return time.Time{}, &InputError{"Julian Ephemeris Day", jde, "must be a finite number"}
+	}
+	// ΔT is far below a day, so a jde a day beyond the range's Julian days
+	// is out of range whatever it is; checking it here keeps a huge value
+	// from wrapping round in the conversion to a time.Time.
+	if jde < JulianDay(MinTime.Add(-RangeMargin))-1 || jde > JulianDay(MaxTime.Add(RangeMargin))+1 {
+		return time.Time{}, &RangeError{What: "Julian Ephemeris Day", Value: strconv.FormatFloat(jde, 'f', -1, 64), Min: "1800-01-01", Max: "2200-12-31"}
+	}
 	sec := ttToUnix(jde)
 	t := timeFromUnix(sec)
 	if err := checkTime("time", t); err != nil {

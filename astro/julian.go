@@ -41,14 +41,24 @@ func JulianDay(t time.Time) float64 {
 
 // TimeFromJulianDay returns the UTC instant of the Julian day jd (the inverse
 // of JulianDay), rounded to the nearest microsecond, which is below the
-// float64 resolution of jd.
+// float64 resolution of jd. It takes any Julian day a time.Time can hold (not
+// only the supported range); for NaN, an infinity or a Julian day beyond
+// time.Time's range it returns the zero Time (IsZero reports it).
 func TimeFromJulianDay(jd float64) time.Time {
 	d := jd - jdUnixEpoch
+	if !(math.Abs(d) < maxTimeDays) {
+		return time.Time{}
+	}
 	whole := math.Floor(d)
 	frac := d - whole
 	us := math.Round(frac * secondsPerDay * 1e6)
 	return time.Unix(int64(whole)*86400, 0).Add(time.Duration(us) * time.Microsecond).UTC()
 }
+
+// maxTimeDays bounds the days from the Unix epoch TimeFromJulianDay converts:
+// their seconds must fit an int64, as time.Unix takes them (2⁶³ s is about
+// 1.07e14 days).
+const maxTimeDays = 1e14
 
 // unixToJD converts Unix seconds (float) to a Julian day.
 func unixToJD(sec float64) float64 { return jdUnixEpoch + sec/secondsPerDay }

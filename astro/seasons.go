@@ -75,13 +75,14 @@ func CrossQuarters(year int) ([4]time.Time, error) {
 // longitude within about a degree of it may be reached twice or not at all in
 // a calendar year; the instant returned is then the one nearest to where
 // that longitude falls in an average year, which can lie in the neighbouring
-// year. It returns a *RangeError for years outside 1799..2201.
+// year. It returns a *RangeError for years outside 1799..2201 and an
+// *InputError for a longitude that is NaN or infinite.
 func SolarLongitudeTime(year int, longitude float64) (time.Time, error) {
 	if err := checkYear(year); err != nil {
 		return time.Time{}, err
 	}
 	if math.IsNaN(longitude) || math.IsInf(longitude, 0) {
-		return time.Time{}, &RangeError{What: "longitude", Value: "NaN or Inf", Min: "-Inf", Max: "+Inf"}
+		return time.Time{}, &InputError{"solar longitude", longitude, "must be a finite number of degrees"}
 	}
 	lon := norm360(longitude)
 	// Start from the March equinox of the year (or of the next one for the

@@ -82,14 +82,14 @@ var maxDates = int(MaxTime.Sub(MinTime).Hours()/24) + 8
 // per calendar date and stops with ctx's error when ctx is done.
 func localDays(ctx context.Context, what string, loc *time.Location, first, last time.Time, hour int) ([]dateSpan, error) {
 	if loc == nil {
-		return nil, fmt.Errorf("astro: %s: nil location", what)
+		return nil, invalidf("astro: %s: nil location", what)
 	}
 	fy, fm, fd := first.In(loc).Date()
 	ly, lm, ld := last.In(loc).Date()
 	d0 := time.Date(fy, fm, fd, 0, 0, 0, 0, time.UTC)
 	d1 := time.Date(ly, lm, ld, 0, 0, 0, 0, time.UTC)
 	if d1.Before(d0) {
-		return nil, fmt.Errorf("astro: %s: last date %s is before the first %s", what,
+		return nil, invalidf("astro: %s: last date %s is before the first %s", what,
 			d1.Format(time.DateOnly), d0.Format(time.DateOnly))
 	}
 	n := int(d1.Sub(d0).Hours()/24) + 1 // UTC has no clock changes: exact

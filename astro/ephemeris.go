@@ -276,7 +276,7 @@ func newEphemeris(from, to time.Time, useTable bool) (*Ephemeris, error) {
 		return nil, err
 	}
 	if to.Before(from) {
-		return nil, fmt.Errorf("astro: ephemeris end %s is before its start %s", to.UTC().Format(time.RFC3339), from.UTC().Format(time.RFC3339))
+		return nil, invalidf("astro: ephemeris end %s is before its start %s", to.UTC().Format(time.RFC3339), from.UTC().Format(time.RFC3339))
 	}
 	qa, qb := from.Add(-ephemerisMargin), to.Add(ephemerisMargin)
 	tr := allocSunTrack(from, to)

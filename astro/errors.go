@@ -24,3 +24,18 @@ func (e *RangeError) Error() string {
 
 // Is reports whether target is ErrOutOfRange.
 func (e *RangeError) Is(target error) bool { return target == ErrOutOfRange }
+
+// invalidf returns an error with the formatted message that matches
+// ErrInvalidInput, for malformed input that is not one number (an InputError
+// names a field and a float64): a span that ends before it starts, a nil
+// location.
+func invalidf(format string, args ...any) error {
+	return &invalidError{fmt.Sprintf(format, args...)}
+}
+
+type invalidError struct{ msg string }
+
+func (e *invalidError) Error() string { return e.msg }
+
+// Is reports whether target is ErrInvalidInput.
+func (e *invalidError) Is(target error) bool { return target == ErrInvalidInput }

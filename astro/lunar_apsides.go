@@ -89,7 +89,7 @@ func LunarApsides(from, to time.Time) ([]LunarApsis, error) {
 		return nil, err
 	}
 	if to.Before(from) {
-		return nil, fmt.Errorf("astro: lunar apsides: to %s is before from %s", to.UTC().Format(time.RFC3339), from.UTC().Format(time.RFC3339))
+		return nil, invalidf("astro: lunar apsides: to %s is before from %s", to.UTC().Format(time.RFC3339), from.UTC().Format(time.RFC3339))
 	}
 	fromSec, toSec := unixSeconds(from), unixSeconds(to)
 	k := math.Floor((unixToJD(fromSec)-2451534.6698)/27.55454989*2)/2 - 0.5

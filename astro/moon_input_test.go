@@ -8,8 +8,9 @@ import (
 )
 
 // TestMoonBadInput: out-of-range instants are *RangeError (matching
-// ErrOutOfRange) naming the input and the supported span; a reversed span
-// and invalid observers are clear errors naming the field and the value.
+// ErrOutOfRange) naming the input and the supported span; a reversed span,
+// a nil location and invalid observers are clear errors naming the field and
+// the value, matching ErrInvalidInput.
 func TestMoonBadInput(t *testing.T) {
 	early := time.Date(1799, 11, 30, 0, 0, 0, 0, time.UTC) // before MinTime − RangeMargin
 	day := time.Date(2026, 5, 1, 0, 0, 0, 0, time.UTC)
@@ -29,7 +30,7 @@ func TestMoonBadInput(t *testing.T) {
 		{"MoonIllumination after 2200", func() error { _, err := MoonIllumination(MaxTime.Add(RangeMargin)); return err }, ErrOutOfRange, ""},
 		{"MoonPhases from before 1800", func() error { _, err := MoonPhases(early, day); return err }, ErrOutOfRange,
 			"astro: moon phases from 1799-11-30T00:00:00Z outside the supported range 1800-01-01..2200-12-31"},
-		{"MoonPhases reversed", func() error { _, err := MoonPhases(day, day.AddDate(0, 0, -1)); return err }, nil,
+		{"MoonPhases reversed", func() error { _, err := MoonPhases(day, day.AddDate(0, 0, -1)); return err }, ErrInvalidInput,
 			"astro: moon phases: to 2026-04-30T00:00:00Z is before from 2026-05-01T00:00:00Z"},
 		{"NewMoonEphemeris before 1800", func() error { _, err := NewMoonEphemeris(early, day); return err }, ErrOutOfRange, ""},
 		{"MoonRiseSet longitude 190", func() error { _, err := me.MoonRiseSet(bad, day, day.AddDate(0, 0, 1)); return err }, ErrInvalidInput,
@@ -38,12 +39,16 @@ func TestMoonBadInput(t *testing.T) {
 			_, err := me.MoonRiseSet(Observer{}, day.AddDate(0, 0, 10), day.AddDate(0, 0, 11))
 			return err
 		}, ErrOutOfRange, ""},
-		{"MoonDays nil location", func() error { _, err := me.MoonDays(context.Background(), Observer{}, nil, day, day); return err }, nil, "astro: MoonDays: nil location"},
+		{"MoonDays nil location", func() error { _, err := me.MoonDays(context.Background(), Observer{}, nil, day, day); return err }, ErrInvalidInput, "astro: MoonDays: nil location"},
 		{"MoonDays reversed", func() error {
 			_, err := me.MoonDays(context.Background(), Observer{}, time.UTC, day.AddDate(0, 0, 1), day)
 			return err
-		}, nil,
+		}, ErrInvalidInput,
 			"astro: MoonDays: last date 2026-05-01 is before the first 2026-05-02"},
+		{"LunarApsides reversed", func() error { _, err := LunarApsides(day, day.AddDate(0, 0, -1)); return err }, ErrInvalidInput,
+			"astro: lunar apsides: to 2026-04-30T00:00:00Z is before from 2026-05-01T00:00:00Z"},
+		{"NewMoonEphemeris reversed", func() error { _, err := NewMoonEphemeris(day, day.AddDate(0, 0, -1)); return err }, ErrInvalidInput,
+			"astro: ephemeris end 2026-04-30T00:00:00Z is before its start 2026-05-01T00:00:00Z"},
 		{"MoonFrom latitude -91", func() error { _, err := MoonFrom(Observer{Latitude: -91}, day); return err }, ErrInvalidInput,
 			"astro: observer latitude -91: must be within -90..90 degrees"},
 	} {

@@ -156,7 +156,7 @@ func MoonPhases(from, to time.Time) ([]Phase, error) {
 		return nil, err
 	}
 	if to.Before(from) {
-		return nil, fmt.Errorf("astro: moon phases: to %s is before from %s", to.UTC().Format(time.RFC3339), from.UTC().Format(time.RFC3339))
+		return nil, invalidf("astro: moon phases: to %s is before from %s", to.UTC().Format(time.RFC3339), from.UTC().Format(time.RFC3339))
 	}
 	fromSec, toSec := unixSeconds(from), unixSeconds(to)
 	// The true phase is within about 0.6 day of the mean phase; start one

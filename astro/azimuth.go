@@ -48,7 +48,8 @@ func (tr *track) azimuth(st *site, sec float64) float64 {
 
 // SunAzimuth returns the topocentric azimuth of the Sun's centre at t, in
 // degrees from the north through the east (0 ≤ A < 360): e.g. where the
-// Sun rises. The instant must lie within Coverage().
+// Sun rises. The instant must lie within Coverage() (else a *RangeError); an
+// invalid observer gives an *InputError.
 func (e *Ephemeris) SunAzimuth(o Observer, t time.Time) (float64, error) {
 	st, err := e.query(o, t, t)
 	if err != nil {
@@ -58,7 +59,9 @@ func (e *Ephemeris) SunAzimuth(o Observer, t time.Time) (float64, error) {
 }
 
 // MoonAzimuth returns the topocentric azimuth of the Moon's centre at t, in
-// degrees from the north through the east (0 ≤ A < 360).
+// degrees from the north through the east (0 ≤ A < 360). The instant must
+// lie within Coverage() (else a *RangeError); an invalid observer gives an
+// *InputError.
 func (e *MoonEphemeris) MoonAzimuth(o Observer, t time.Time) (float64, error) {
 	st, err := e.query(o, t, t)
 	if err != nil {

@@ -145,9 +145,13 @@ func (e *MoonEphemeris) fractionCrossings(thr, a, b float64, out []darkEvent) []
 }
 
 // DarkWindows returns one Night per local date from first to last inclusive
-// (dates read in loc; the clock part is ignored), each with the dark-sky
+// (the dates of first.In(loc) and last.In(loc), as in SunDays), each with the dark-sky
 // windows of the night that begins on the evening of that date: from local
-// noon of the date to local noon of the next (see the top of this file).
+// noon of the date to local noon of the next (a window after midnight
+// belongs to the previous date's night; in polar winter a dark spell that
+// lasts past local noon is split there). A moment is dark when the Sun's
+// centre is below −18° (astronomical night) and the Moon is down (its upper
+// limb below the horizon, as for MoonRiseSet) or lit below maxFraction.
 // maxFraction is the illuminated fraction (0..1) below which a Moon above
 // the horizon still counts as dark; 0 requires the Moon to be down. The
 // nights must lie within Coverage(). It stops with ctx's error when ctx is
@@ -159,7 +163,8 @@ func (e *MoonEphemeris) DarkWindows(ctx context.Context, o Observer, loc *time.L
 // DarkSkylineWindows is DarkWindows at a site with the skyline sky: the Moon
 // counts as down while its upper limb is behind the skyline in its
 // direction, by the rule of MoonSkylineCrossings (o.Horizon is ignored);
-// the Sun's −18° is unchanged (see the top of this file). A skyline at one
+// the Sun's −18° is unchanged (twilight's glow comes from high in the
+// atmosphere, over the hills as well as behind them). A skyline at one
 // altitude everywhere gives exactly DarkWindows with that Horizon.
 func (e *MoonEphemeris) DarkSkylineWindows(ctx context.Context, o Observer, sky Skyline, loc *time.Location, first, last time.Time, maxFraction float64) ([]Night, error) {
 	if err := sky.check(); err != nil {

@@ -287,9 +287,10 @@ func epochOf(sec float64) Epoch {
 	return Epoch{JD: jd, JDUT1: jd + du/secondsPerDay, JDE: jd + (du+dt)/secondsPerDay}
 }
 
-// DeltaT returns ΔT = TT − UT1 at the UTC instant t, from the model described
-// above (observed values 1973-02..2023-05). It returns a *RangeError outside
-// MinTime..MaxTime.
+// DeltaT returns ΔT = TT − UT1 at the UTC instant t, from the model the
+// package documentation describes (Conventions: observed values
+// 1973-02..2023-05, polynomials before, a prediction after, whose uncertainty
+// FutureUncertainty gives). It returns a *RangeError outside MinTime..MaxTime.
 func DeltaT(t time.Time) (time.Duration, error) {
 	if err := checkTime("time", t); err != nil {
 		return 0, err

@@ -9,6 +9,39 @@
 // no files read at run time (the coefficient tables are generated Go
 // source), no logging.
 //
+// # Where to start
+//
+// Events at a place are searched on an ephemeris built once for a span of
+// dates and shared by any number of places (see the examples):
+//
+//   - sunrise, sunset and twilight: NewEphemeris for the dates, an Observer
+//     for the place, then Ephemeris.SunDays with Observer.RiseSetAltitude
+//     (sunrise and sunset), CivilTwilight, NauticalTwilight,
+//     AstronomicalTwilight or any altitude: one Day per local date with its
+//     rising and setting crossings, or the State AlwaysAbove (midnight Sun)
+//     or AlwaysBelow (polar night) when there is none. Ephemeris.SunCrossings
+//     gives the same crossings over a span of instants instead of dates;
+//   - solar noon: Ephemeris.SunTransits; the Sun's altitude and azimuth at a
+//     place: Ephemeris.SunAltitude and Ephemeris.SunAzimuth;
+//   - moonrise, moonset and the Moon's transits: NewMoonEphemeris, then
+//     MoonEphemeris.MoonDays and MoonEphemeris.MoonTransits; dark-sky
+//     windows: MoonEphemeris.DarkWindows;
+//   - the Moon's phases and lit fraction: MoonPhases, MoonIllumination;
+//   - equinoxes and solstices: Seasons (CrossQuarters, Perihelion and
+//     Aphelion likewise, by year); eclipses: SolarEclipses, LunarEclipses
+//     and their Local circumstances;
+//   - the geocentric Sun and Moon at an instant: Sun, Moon; time scales:
+//     JulianDay, JulianEphemerisDay, DeltaT.
+//
+// Instants may be given in any location: only the instant counts, and
+// results are in UTC (In shows them on a local clock). The per-date searches
+// (SunDays, MoonDays, DarkWindows and their skyline forms) take the time
+// zone whose dates they list, and read first and last as dates in it.
+//
+// Every function and method is safe for concurrent use: an Ephemeris or
+// MoonEphemeris is immutable once built, and the package keeps no other
+// state than tables computed once.
+//
 // # Sources
 //
 //	file                      method                                       published source
@@ -58,10 +91,10 @@
 // kind of event on every date of it; the computations run a month beyond it
 // (RangeMargin; the yearly ones for 1799..2201) for the margins the dates at
 // either end need. Outside that, functions return a *RangeError that matches
-// ErrOutOfRange. Invalid
-// input (a latitude of 95°) gives an *InputError naming the field and
-// value, matching ErrInvalidInput. Polar day and polar night are not
-// errors: they are states (State, Day) of the result.
+// ErrOutOfRange. Invalid input (a latitude of 95°, a NaN, a span that ends
+// before it starts) gives an error matching ErrInvalidInput: for a number,
+// an *InputError naming the field and value. Polar day and polar night are
+// not errors: they are states (State, Day) of the result.
 //
 // # Accuracy
 //

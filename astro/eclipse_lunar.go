@@ -208,7 +208,9 @@ func (l *LocalLunarEclipse) Visible() bool {
 }
 
 // Local returns the eclipse's circumstances at the observer's site. The
-// observer must be valid (Observer.Validate).
+// observer must be valid: Local does not check it (call Observer.Validate
+// first), and an invalid one gives meaningless circumstances (NaN altitudes
+// for a NaN latitude).
 func (e *LunarEclipse) Local(o Observer) LocalLunarEclipse {
 	st := newSite(o)
 	// The Moon's rise/set altitude for its distance at maximum: its

@@ -296,7 +296,9 @@ type solarLocal struct {
 
 // Local returns the eclipse's circumstances at the observer's site, and
 // false when the site sees no phase of it (whether the Sun is up or not:
-// see Visible). The observer must be valid (Observer.Validate).
+// see Visible). The observer must be valid: Local does not check it (call
+// Observer.Validate first), and an invalid one gives meaningless
+// circumstances (a NaN magnitude for a NaN latitude).
 func (e *SolarEclipse) Local(o Observer) (LocalSolarEclipse, bool) {
 	st := newSite(o)
 	var v [beCount]float64

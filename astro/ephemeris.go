@@ -374,7 +374,8 @@ func sunSamples(start float64, k0, k1 int, put func(b0 int, gha, dec, dist []flo
 	wg.Wait()
 }
 
-// Direction tells whether the Sun crosses a threshold going up or down.
+// Direction tells whether the Sun or the Moon crosses a threshold going up
+// (Rising) or down (Setting).
 type Direction int
 
 // Directions of a crossing.
@@ -394,7 +395,9 @@ func (d Direction) String() string {
 	return fmt.Sprintf("Direction(%d)", int(d))
 }
 
-// Crossing is an instant when the Sun's centre crosses an altitude.
+// Crossing is an instant when the Sun or the Moon crosses an altitude
+// (SunCrossings: the Sun's centre; MoonRiseSet: the Moon's upper limb) or a
+// skyline.
 type Crossing struct {
 	Time      time.Time // UTC, to the microsecond (solved to 1 ms)
 	Direction Direction
@@ -402,9 +405,11 @@ type Crossing struct {
 
 // SunCrossings returns every crossing of the Sun's centre through altitude
 // (degrees; topocentric and geometric: no refraction is applied, the
-// thresholds above already include it) in [from, to), sorted. For sunrise
-// and sunset pass o.RiseSetAltitude(). The span must lie within Coverage()
-// (else a *RangeError); an invalid observer gives an *InputError.
+// thresholds SunriseAltitude, CivilTwilight… already include it) in
+// [from, to), sorted; an empty span (to not after from) has none. For
+// sunrise and sunset pass o.RiseSetAltitude(). The span must lie within
+// Coverage() (else a *RangeError); an invalid observer or altitude gives an
+// *InputError.
 func (e *Ephemeris) SunCrossings(o Observer, altitude float64, from, to time.Time) ([]Crossing, error) {
 	res, err := e.SunCrossingsMany(o, []float64{altitude}, from, to)
 	if err != nil {
@@ -487,7 +492,8 @@ type scratch struct {
 
 var crossingScratch = sync.Pool{New: func() any { return new(scratch) }}
 
-// Transit is an upper meridian transit of the Sun (solar noon).
+// Transit is an upper meridian transit of the Sun (solar noon, SunTransits)
+// or of the Moon (MoonTransits).
 type Transit struct {
 	Time     time.Time // UTC
 	Altitude float64   // topocentric geometric altitude of the centre, degrees (negative in polar night)
@@ -495,6 +501,8 @@ type Transit struct {
 
 // SunTransits returns the Sun's upper transits (local hour angle 0: solar
 // noon) in [from, to), one per day at every latitude, including polar night.
+// The span must lie within Coverage() (else a *RangeError); an invalid
+// observer gives an *InputError.
 func (e *Ephemeris) SunTransits(o Observer, from, to time.Time) ([]Transit, error) {
 	st, err := e.query(o, from, to)
 	if err != nil {
@@ -514,7 +522,8 @@ func (e *Ephemeris) AppendSunTransits(dst []Transit, o Observer, from, to time.T
 }
 
 // SunAltitude returns the topocentric geometric altitude of the Sun's
-// centre (degrees, no refraction) at t.
+// centre (degrees, no refraction) at t. The instant must lie within
+// Coverage() (else a *RangeError); an invalid observer gives an *InputError.
 func (e *Ephemeris) SunAltitude(o Observer, t time.Time) (float64, error) {
 	st, err := e.query(o, t, t)
 	if err != nil {
@@ -523,14 +532,15 @@ func (e *Ephemeris) SunAltitude(o Observer, t time.Time) (float64, error) {
 	return e.sun.altitude(st, t), nil
 }
 
-// State says whether a threshold is crossed during a date.
+// State says whether a threshold is crossed during a date: the Sun's in
+// SunDays, the Moon's in MoonDays.
 type State int
 
 // States of a date.
 const (
 	Crosses     State = iota // at least one crossing in the date
-	AlwaysAbove              // no crossing: the Sun stays above the threshold all day
-	AlwaysBelow              // no crossing: the Sun stays below the threshold all day
+	AlwaysAbove              // no crossing: the body stays above the threshold all day (the midnight Sun)
+	AlwaysBelow              // no crossing: the body stays below the threshold all day (the polar night)
 )
 
 // String returns "crosses", "always-above" or "always-below".
@@ -546,7 +556,8 @@ func (s State) String() string {
 	return fmt.Sprintf("State(%d)", int(s))
 }
 
-// Day is the Sun's crossings of one threshold during one local date.
+// Day is the crossings of one threshold by the Sun (SunDays) or the Moon
+// (MoonDays) during one local date.
 type Day struct {
 	Date    time.Time   // first instant of the date in the location asked for: local midnight, or the clock change where midnight is skipped (DateStart)
 	Rising  []time.Time // upward crossings within the date, in order (UTC)
@@ -555,7 +566,9 @@ type Day struct {
 }
 
 // SunDays returns one Day per local date from first to last inclusive
-// (dates read in loc; the clock part of first and last is ignored), with
+// (the dates of first.In(loc) and last.In(loc): make them in loc, as
+// midnight UTC is the previous date west of Greenwich; the clock part is
+// otherwise ignored), with
 // the crossings of altitude (degrees, geometric; o.RiseSetAltitude() for
 // sunrise and sunset) that fall within each date, from its first instant
 // (local midnight, or the clock change where midnight is skipped; see

@@ -236,8 +236,9 @@ func rootInBracket(f func(float64) float64, a, fa, b, fb, x float64) float64 {
 
 // MoonRiseSet returns every moonrise (Direction Rising) and moonset
 // (Setting) for the observer in [from, to), sorted: the upper limb on the
-// horizon with 34′ of refraction and the observer's dip or skyline, for the
-// topocentric Moon (see moonrise.go). The span must lie within Coverage()
+// horizon with 34′ of refraction and the observer's dip or Horizon, for the
+// topocentric Moon (its parallax makes it rise up to 4 minutes later than
+// the geocentric Moon would). The span must lie within Coverage()
 // (else a *RangeError); an invalid observer gives an *InputError.
 func (e *MoonEphemeris) MoonRiseSet(o Observer, from, to time.Time) ([]Crossing, error) {
 	st, err := e.query(o, from, to)
@@ -275,7 +276,8 @@ func (e *MoonEphemeris) MoonTransits(o Observer, from, to time.Time) ([]Transit,
 }
 
 // MoonAltitude returns the topocentric geometric altitude of the Moon's
-// centre (degrees, no refraction) at t.
+// centre (degrees, no refraction) at t. The instant must lie within
+// Coverage() (else a *RangeError); an invalid observer gives an *InputError.
 func (e *MoonEphemeris) MoonAltitude(o Observer, t time.Time) (float64, error) {
 	st, err := e.query(o, t, t)
 	if err != nil {
@@ -292,7 +294,7 @@ func (e *MoonEphemeris) moonUp(o Observer, st *site, sec float64) bool {
 }
 
 // MoonDays returns one Day per local date from first to last inclusive
-// (dates read in loc; the clock part of first and last is ignored), with
+// (the dates of first.In(loc) and last.In(loc), as in SunDays), with
 // the moonrises (Rising) and moonsets (Setting) within each date, from its
 // first instant to the next date's (as in SunDays). A date commonly has no
 // moonrise or no moonset (about once a month each): then that list is empty

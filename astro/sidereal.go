@@ -30,7 +30,7 @@ func ApparentSiderealTime(jdUT1, jde float64) float64 {
 }
 
 // GreenwichMeanSiderealTime returns the Greenwich mean sidereal time in
-// degrees at the UTC instant t (converted to UT1 as described in deltat.go).
+// degrees at the UTC instant t (converted to UT1 with UT1MinusUTC).
 // It returns a *RangeError outside MinTime..MaxTime.
 func GreenwichMeanSiderealTime(t time.Time) (float64, error) {
 	e, err := NewEpoch(t)

@@ -911,6 +911,17 @@ func TestBrowserLightingInHours(t *testing.T) {
 	if !strings.Contains(msg, `parameter lighting="30h"`) {
 		t.Errorf("lighting 30 h: the message under the input reads %q, want it to name lighting=\"30h\"", msg)
 	}
+	// half an hour below zero: the minutes keep the sign of the hours
+	if err := chromedp.Do(ctx,
+		chromedp.SetValue(chromedp.ID("lighting"), "-0.5"),
+		chromedp.Evaluate[chromedp.Void](`document.getElementById("builder").dispatchEvent(new Event("input"))`),
+		chromedp.Poll[chromedp.Void](`document.getElementById("field-error").textContent.includes("lighting=\"-")`),
+	); err != nil {
+		t.Fatal(err)
+	}
+	if msg, err = chromedp.Run(ctx, chromedp.Text(chromedp.ID("field-error"))); err != nil || !strings.Contains(msg, `parameter lighting="-0h30m"`) {
+		t.Errorf("lighting -0.5 h: the message under the input reads %q (%v), want it to name lighting=\"-0h30m\"", msg, err)
+	}
 	if err := chromedp.Do(ctx,
 		chromedp.SetValue(chromedp.ID("lighting"), "14.5"),
 		chromedp.Evaluate[chromedp.Void](`document.getElementById("builder").dispatchEvent(new Event("input"))`),

@@ -63,9 +63,11 @@ function query(withStart) {
 }
 
 // hours writes a number of hours, as the lighting input takes it, as a
-// duration in the hours the input shows: 16 is "16h", 16.5 "16h30m", so
-// that a refused value is told back as it was given ("30h", not "1800m").
+// duration in the hours the input shows: 16 is "16h", 16.5 "16h30m", -0.5
+// "-0h30m", so that a refused value is told back as it was given ("30h",
+// not "1800m").
 function hours(h) {
+  if (h < 0) return "-" + hours(-h);
   const whole = Math.trunc(h);
   const min = Math.round((h - whole) * 60);
   return whole + "h" + (min ? min + "m" : "");

@@ -103,8 +103,7 @@ func syzygies(from, to time.Time, kind PhaseKind) ([]float64, error) {
 		return nil, err
 	}
 	if to.Before(from) {
-		return nil, &RangeError{What: "eclipses to", Value: to.UTC().Format(time.RFC3339),
-			Min: from.UTC().Format(time.RFC3339), Max: "2200-12-31"}
+		return nil, invalidf("astro: eclipses: to %s is before from %s", to.UTC().Format(time.RFC3339), from.UTC().Format(time.RFC3339))
 	}
 	lo := math.Max(unixSeconds(from)-secondsPerDay, minUnix+eclipseHalfWindow)
 	hi := math.Min(unixSeconds(to)+secondsPerDay, maxUnix-eclipseHalfWindow)

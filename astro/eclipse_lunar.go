@@ -124,7 +124,8 @@ func lunarSample(sec, raS, raM, g float64, out []float64) {
 
 // LunarEclipses returns the lunar eclipses (penumbral ones included) whose
 // greatest eclipse falls in [from, to), in order. It returns a *RangeError
-// outside MinTime..MaxTime.
+// outside MinTime..MaxTime and an error matching ErrInvalidInput when to is
+// before from.
 func LunarEclipses(from, to time.Time) ([]*LunarEclipse, error) {
 	fm, err := syzygies(from, to, FullMoon)
 	if err != nil {

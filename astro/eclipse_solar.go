@@ -156,7 +156,8 @@ func besselian(sec, muRef float64, out []float64) {
 }
 
 // SolarEclipses returns the solar eclipses whose greatest eclipse falls in
-// [from, to), in order. It returns a *RangeError outside MinTime..MaxTime.
+// [from, to), in order. It returns a *RangeError outside MinTime..MaxTime and
+// an error matching ErrInvalidInput when to is before from.
 func SolarEclipses(from, to time.Time) ([]*SolarEclipse, error) {
 	nm, err := syzygies(from, to, NewMoon)
 	if err != nil {

@@ -44,6 +44,11 @@ import (
 // in any zone and with the searches' own margins, can be computed.
 // Exported functions return a *RangeError outside the span and its margin.
 
+// MinTime and MaxTime bound the supported span. Where a function's
+// documentation says it returns a *RangeError outside MinTime..MaxTime, it
+// still computes within RangeMargin beyond either end (so that the first and
+// last local dates can be computed in any zone) and refuses what lies
+// further.
 var (
 	// MinTime is the first instant this package supports.
 	MinTime = time.Date(1800, 1, 1, 0, 0, 0, 0, time.UTC)

@@ -147,7 +147,7 @@ func truePhaseJDE(jde0, target float64) float64 {
 // of 0°, 90°, 180° or 270°, solved on ELP/MPP02 and VSOP87D positions (see
 // phases.go); measured within a few seconds of the almanac-office instants.
 // It returns a *RangeError (matching ErrOutOfRange) when from or to is
-// outside MinTime..MaxTime, and an error when to is before from.
+// outside MinTime..MaxTime, and an error matching ErrInvalidInput when to is before from.
 func MoonPhases(from, to time.Time) ([]Phase, error) {
 	if err := checkTime("moon phases from", from); err != nil {
 		return nil, err

@@ -1191,13 +1191,13 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 	} else {
 		en.Categories = w.categories(e.Kind)
 	}
-	// field by field into the zero entry: no Facts made and copied, and
-	// no copy of the event for EclipseFacts unless it is an eclipse
+	// field by field into the zero entry: no Facts made and copied
 	f := &en.Facts
 	f.Part, f.Direction, f.Altitude, f.Azimuth, f.Distance = e.Part, e.Direction, e.Altitude, e.Azimuth, e.Distance
-	f.Illuminated, f.DayLength, f.DirectSun, f.Lamp, f.Short = e.Illuminated, e.DayLength, e.DirectSun, e.Lamp, e.Short
+	f.Illuminated, f.DayLength, f.DirectSun = e.Illuminated, e.DayLength, e.DirectSun
 	f.Open, f.LongDay = e.Open, e.LongDay
-	if e.Solar != nil || e.Lunar != nil {
+	if e.more != nil { // a lamp period or an eclipse
+		f.Lamp, f.Short = e.more.lamps.Lamp, e.more.lamps.Short
 		f.Eclipse = e.EclipseFacts()
 	}
 	if entryAllDay(spec, &e.Kind) {

@@ -46,36 +46,35 @@ func (c *collector) eclipses(k config.Kind) error {
 		return err
 	}
 	var me *astro.MoonEphemeris
-	add := func(start, end time.Time, e Event) error {
-		e.Kind, e.Start, e.End = k, start, end
-		e.Date = localDate(start, c.p.Location)
+	add := func(start, end time.Time, x EclipseFacts) error {
+		e := Event{Kind: k, Start: start, End: end, Date: localDate(start, c.p.Location)}
 		if !c.inRange(e.Date) {
 			return nil
 		}
 		if len(c.p.Skyline) > 0 { // the part over the skyline is what the site sees
 			var err error
-			e.Skyline = true
-			if e.Solar != nil {
-				e.Visible, err = c.sky.eph.SunSkylineSpans(o, c.p.Skyline, start, end)
+			x.Skyline = true
+			if x.Solar != nil {
+				x.Visible, err = c.sky.eph.SunSkylineSpans(o, c.p.Skyline, start, end)
 			} else {
 				if me == nil {
 					if me, err = c.sky.moonEphemeris(); err != nil {
 						return err
 					}
 				}
-				e.Visible, err = me.MoonSkylineSpans(o, c.p.Skyline, start, end)
+				x.Visible, err = me.MoonSkylineSpans(o, c.p.Skyline, start, end)
 			}
 			if err != nil {
 				return err
 			}
 		}
-		c.events = append(c.events, e)
+		c.events = append(c.events, e.withEclipse(x))
 		return nil
 	}
 	if k.Name == "solar-eclipse" {
 		for _, e := range list.solar {
 			if l, ok := e.Local(o); ok && l.Visible() {
-				if err := add(l.C1.Time, l.C4.Time, Event{Solar: &l}); err != nil {
+				if err := add(l.C1.Time, l.C4.Time, EclipseFacts{Solar: &l}); err != nil {
 					return err
 				}
 			}
@@ -84,7 +83,7 @@ func (c *collector) eclipses(k config.Kind) error {
 	}
 	for _, e := range list.lunar {
 		if l := e.Local(o); l.Visible() {
-			if err := add(l.P1.Time, l.P4.Time, Event{Lunar: &l}); err != nil {
+			if err := add(l.P1.Time, l.P4.Time, EclipseFacts{Lunar: &l}); err != nil {
 				return err
 			}
 		}
@@ -136,32 +135,34 @@ func bodyPlace(body string, c astro.Contact) string {
 
 // describeEclipse gives the title and description of an eclipse entry.
 func describeEclipse(s *siteInfo, e Event) (string, string) {
-	if e.Solar != nil {
-		return describeSolar(s, e)
+	x := e.EclipseFacts()
+	if x.Solar != nil {
+		return describeSolar(s, e, x)
 	}
-	return describeLunar(s, e)
+	return describeLunar(s, e, x)
 }
 
 // skylineText says, for an eclipse at a site with a skyline, when the body
 // (body: "Sun" or "Moon") is over the skyline, so seen from the site, and
 // adds to the title ("behind the skyline here", "partly behind the
 // skyline"); phase names the eclipse's phase at an instant of it. It
-// returns "" and the title unchanged at a site without one.
-func skylineText(s *siteInfo, e Event, body, title string, phase func(time.Time) string) (string, string) {
-	if !e.Skyline {
+// returns "" and the title unchanged at a site without one. x is e's
+// circumstances.
+func skylineText(s *siteInfo, e Event, x *EclipseFacts, body, title string, phase func(time.Time) string) (string, string) {
+	if !x.Skyline {
 		return "", title
 	}
 	loc := s.TimeZone.Location
-	if len(e.Visible) == 0 {
+	if len(x.Visible) == 0 {
 		return fmt.Sprintf("The %s stays behind the site's skyline all through the eclipse: none of it can be seen from the site.\n", body),
 			title + " (behind the skyline here)"
 	}
-	if len(e.Visible) == 1 && !e.Visible[0].Start.After(e.Start) && !e.Visible[0].End.Before(e.End) {
+	if len(x.Visible) == 1 && !x.Visible[0].Start.After(e.Start) && !x.Visible[0].End.Before(e.End) {
 		return fmt.Sprintf("The %s is over the site's skyline all through the eclipse.\n", body), title
 	}
 	var b strings.Builder
 	var seen time.Duration
-	for _, v := range e.Visible {
+	for _, v := range x.Visible {
 		seen += v.Length
 		if v.Start.After(e.Start) {
 			fmt.Fprintf(&b, "The %s appears over the site's skyline at %s, %s.\n", body, localClock(v.Start, loc), phase(v.Start))
@@ -177,23 +178,23 @@ func skylineText(s *siteInfo, e Event, body, title string, phase func(time.Time)
 
 // placeAt is bodyPlace, with "behind the skyline" for a body above the
 // horizon but behind the site's skyline.
-func placeAt(e Event, body string, c astro.Contact) string {
+func placeAt(x *EclipseFacts, body string, c astro.Contact) string {
 	p := bodyPlace(body, c)
-	if c.Up && !e.seen(c.Time) {
+	if c.Up && !x.seen(c.Time) {
 		p += ", behind the site's skyline"
 	}
 	return p
 }
 
-func describeSolar(s *siteInfo, e Event) (string, string) {
-	l := e.Solar
+func describeSolar(s *siteInfo, e Event, x *EclipseFacts) (string, string) {
+	l := x.Solar
 	loc := s.TimeZone.Location
 	typ := l.Type.String()
 	var b strings.Builder
 	fmt.Fprintf(&b, "%s solar eclipse seen from %s, %s to %s%s.\n", Capital(typ), s.where,
 		localClock(l.C1.Time, loc), localClock(l.C4.Time, loc), DayMark(l.C4.Time, e.Date, loc))
 	line := func(name string, c astro.Contact, extra string) {
-		fmt.Fprintf(&b, "%s %s; %s%s.\n", localClock(c.Time, loc), name, placeAt(e, "Sun", c), extra)
+		fmt.Fprintf(&b, "%s %s; %s%s.\n", localClock(c.Time, loc), name, placeAt(x, "Sun", c), extra)
 	}
 	line("first contact, the Moon begins to cover the Sun", l.C1, "")
 	if !l.C2.IsZero() {
@@ -214,7 +215,7 @@ func describeSolar(s *siteInfo, e Event) (string, string) {
 		best = 0
 	}
 	for _, h := range l.Horizon {
-		if e.Skyline {
+		if x.Skyline {
 			best = math.Max(best, h.Magnitude)
 			continue // the skyline's appearance and disappearance are said below
 		}
@@ -225,11 +226,11 @@ func describeSolar(s *siteInfo, e Event) (string, string) {
 		fmt.Fprintf(&b, "The Sun %s at %s %s, %s of its diameter covered.\n", verb, localClock(h.Time, loc), state, share(h.Magnitude))
 		best = math.Max(best, h.Magnitude)
 	}
-	if !l.Max.Up && !e.Skyline {
+	if !l.Max.Up && !x.Skyline {
 		b.WriteString("Greatest eclipse happens with the Sun below the horizon here; the part listed above the horizon is what can be seen.\n")
 	}
 	eclipsed := func(time.Time) string { return "eclipsed" }
-	over, _ := skylineText(s, e, "Sun", "", eclipsed)
+	over, _ := skylineText(s, e, x, "Sun", "", eclipsed)
 	b.WriteString(over)
 	if g := l.Eclipse.Type; g != l.Type && !(g == astro.Hybrid && l.Type != astro.Partial) {
 		fmt.Fprintf(&b, "Elsewhere on the Earth this eclipse is %s.\n", g)
@@ -248,18 +249,18 @@ func describeSolar(s *siteInfo, e Event) (string, string) {
 		title = fmt.Sprintf("%s solar eclipse at the horizon", Capital(typ))
 	}
 	switch {
-	case e.Skyline: // the skyline's suffix instead
+	case x.Skyline: // the skyline's suffix instead
 	case len(l.Horizon) > 0 && l.Horizon[0].Direction == astro.Rising:
 		title += " (at sunrise)"
 	case len(l.Horizon) > 0:
 		title += " (at sunset)"
 	}
-	_, title = skylineText(s, e, "Sun", title, eclipsed)
+	_, title = skylineText(s, e, x, "Sun", title, eclipsed)
 	return title, b.String()
 }
 
-func describeLunar(s *siteInfo, ev Event) (string, string) {
-	l := ev.Lunar
+func describeLunar(s *siteInfo, ev Event, x *EclipseFacts) (string, string) {
+	l := x.Lunar
 	loc := s.TimeZone.Location
 	e := l.Eclipse
 	typ := e.Type.String()
@@ -270,7 +271,7 @@ func describeLunar(s *siteInfo, ev Event) (string, string) {
 		if c.IsZero() {
 			return
 		}
-		fmt.Fprintf(&b, "%s %s; %s%s.\n", localClock(c.Time, loc), name, placeAt(ev, "Moon", c), extra)
+		fmt.Fprintf(&b, "%s %s; %s%s.\n", localClock(c.Time, loc), name, placeAt(x, "Moon", c), extra)
 	}
 	line("the Moon enters the faint outer shadow (penumbra)", l.P1, "")
 	line("the partial eclipse begins: the Moon enters the dark shadow (umbra)", l.U1, "")
@@ -301,13 +302,13 @@ func describeLunar(s *siteInfo, ev Event) (string, string) {
 		} else {
 			rises = true
 		}
-		if ev.Skyline {
+		if x.Skyline {
 			continue // the skyline's appearance and disappearance are said below
 		}
 		fmt.Fprintf(&b, "The Moon %s at %s during the eclipse (%s).\n", verb, localClock(h.Time, loc), lunarPhaseAt(e, h.Time))
 	}
 	phase := func(t time.Time) string { return lunarPhaseAt(e, t) }
-	over, _ := skylineText(s, ev, "Moon", "", phase)
+	over, _ := skylineText(s, ev, x, "Moon", "", phase)
 	b.WriteString(over)
 	b.WriteString(lunarMethod)
 	b.WriteString(FutureNote(e.Max))
@@ -322,7 +323,7 @@ func describeLunar(s *siteInfo, ev Event) (string, string) {
 		title = "Penumbral lunar eclipse: a slight dimming of the Moon"
 	}
 	switch {
-	case ev.Skyline: // the skyline's suffix instead
+	case x.Skyline: // the skyline's suffix instead
 	case rises && sets:
 		title += " (the Moon rises and sets during it)"
 	case rises:
@@ -330,7 +331,7 @@ func describeLunar(s *siteInfo, ev Event) (string, string) {
 	case sets:
 		title += " (at moonset)"
 	}
-	_, title = skylineText(s, ev, "Moon", title, phase)
+	_, title = skylineText(s, ev, x, "Moon", title, phase)
 	return title, b.String()
 }
 

@@ -193,16 +193,26 @@ func TestEclipseBehindSkyline(t *testing.T) {
 			got[e.Date.Format(time.DateOnly)] = e
 		}
 	}
-	partly, hidden, whole := got["2026-08-12"], got["2028-01-26"], got["2027-08-02"]
-	if !partly.Skyline || len(partly.Visible) != 1 || !partly.Visible[0].Start.Equal(partly.Start) ||
-		partly.Visible[0].End.Sub(sunset).Abs() > 2*time.Millisecond {
-		t.Errorf("12 Aug 2026: over the skyline %+v, sunset over the skyline %v", partly.Visible, sunset)
+	facts := func(d string) (Event, EclipseFacts) {
+		e := got[d]
+		if x := e.EclipseFacts(); x != nil {
+			return e, *x
+		}
+		t.Errorf("%s: no eclipse", d)
+		return e, EclipseFacts{}
 	}
-	if !hidden.Skyline || len(hidden.Visible) != 0 {
-		t.Errorf("26 Jan 2028: over the skyline %+v, want none", hidden.Visible)
+	partly, px := facts("2026-08-12")
+	_, hx := facts("2028-01-26")
+	whole, wx := facts("2027-08-02")
+	if !px.Skyline || len(px.Visible) != 1 || !px.Visible[0].Start.Equal(partly.Start) ||
+		px.Visible[0].End.Sub(sunset).Abs() > 2*time.Millisecond {
+		t.Errorf("12 Aug 2026: over the skyline %+v, sunset over the skyline %v", px.Visible, sunset)
 	}
-	if len(whole.Visible) != 1 || !whole.Visible[0].Start.Equal(whole.Start) || !whole.Visible[0].End.Equal(whole.End) {
-		t.Errorf("2 Aug 2027: over the skyline %+v, want all of %v–%v", whole.Visible, whole.Start, whole.End)
+	if !hx.Skyline || len(hx.Visible) != 0 {
+		t.Errorf("26 Jan 2028: over the skyline %+v, want none", hx.Visible)
+	}
+	if len(wx.Visible) != 1 || !wx.Visible[0].Start.Equal(whole.Start) || !wx.Visible[0].End.Equal(whole.End) {
+		t.Errorf("2 Aug 2027: over the skyline %+v, want all of %v–%v", wx.Visible, whole.Start, whole.End)
 	}
 
 	es := eclipseEntries(t, s, "2026-08-12", "2028-01-26", "solar-eclipse")

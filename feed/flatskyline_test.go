@@ -55,7 +55,7 @@ func TestFlatSkylineEqualsHorizonByDate(t *testing.T) {
 				m := map[string][]string{}
 				for _, e := range es {
 					d := e.Date.Format(time.DateOnly)
-					m[d] = append(m[d], fmt.Sprintf("%s %s–%s dir %d length %v change %v long day %v lamp %v", e.Kind, e.Start.Format(time.RFC3339Nano), e.End.Format(time.RFC3339Nano), e.Direction, e.DayLength, e.DayChange, e.LongDay, e.Lamp))
+					m[d] = append(m[d], fmt.Sprintf("%s %s–%s dir %d length %v change %v long day %v lamp %v", e.Kind, e.Start.Format(time.RFC3339Nano), e.End.Format(time.RFC3339Nano), e.Direction, e.DayLength, e.DayChange, e.LongDay, e.LampFacts().Lamp))
 				}
 				for _, n := range ns {
 					d := n.Date.Format(time.DateOnly)

@@ -269,27 +269,25 @@ func (c *collector) lighting(k config.Kind) error {
 		short := k.DayLength - dl.length
 		direct := alt == skylineKey
 		if dl.length > 0 && lamps != config.LampsBoth {
-			// one period, from sunset or to sunrise: written in place
-			c.events = append(c.events, Event{})
-			e := &c.events[len(c.events)-1]
-			c.onePeriod(e, k, d, i, dl, short, lamps == config.LampsMorning, direct, &lim)
-			got, dropped := e.Lamp, time.Duration(0)
+			// one period, from sunset or to sunrise
+			var p lampSpan
+			c.onePeriod(&p, k, d, i, dl, short, lamps == config.LampsMorning, direct, &lim)
+			got, dropped := p.Lamp, time.Duration(0)
 			switch {
 			case got <= 0:
 				got = 0
-				c.events = c.events[:len(c.events)-1]
 			case got < minLen:
-				got, dropped = 0, e.Lamp
-				c.events = c.events[:len(c.events)-1]
-			case got < short:
-				e.Short = true
+				got, dropped = 0, p.Lamp
+			default:
+				p.Short = got < short
+				c.events = append(c.events, p.event())
 			}
 			if got == 0 {
 				c.unscheduled(k, d, dl.length, short, dropped, minLen, &lim)
 			}
 			continue
 		}
-		period := func(part string, start, end time.Time) (e Event) {
+		period := func(part string, start, end time.Time) (e lampSpan) {
 			c.lampPeriod(&e, k, d, part, start, end, dl.length, direct, &lim)
 			return e
 		}
@@ -308,21 +306,21 @@ func (c *collector) lighting(k config.Kind) error {
 				duskTo = dl.last.Add(duskTo.Sub(dl.last) / 2)
 			}
 		}
-		morning := func(n time.Duration) Event {
+		morning := func(n time.Duration) lampSpan {
 			from := dl.first.Add(-n)
 			if !dawnFrom.IsZero() && from.Before(dawnFrom) {
 				from = dawnFrom
 			}
 			return period(partMorning, from, dl.first)
 		}
-		evening := func(n time.Duration) Event {
+		evening := func(n time.Duration) lampSpan {
 			to := dl.last.Add(n)
 			if !duskTo.IsZero() && to.After(duskTo) {
 				to = duskTo
 			}
 			return period(partEvening, dl.last, to)
 		}
-		var ps [2]Event
+		var ps [2]lampSpan
 		switch {
 		case dl.length == 0:
 			tr, ok, err := c.noonOf(d)
@@ -348,21 +346,19 @@ func (c *collector) lighting(k config.Kind) error {
 			ps[0], ps[1] = c.bothPeriods(short, minLen, morning, evening)
 		}
 		var got, dropped time.Duration
-		n0 := len(c.events)
 		for i := range ps {
-			e := &ps[i]
-			switch {
-			case e.Lamp <= 0:
-			case e.Lamp < minLen:
-				dropped += e.Lamp
+			switch l := ps[i].Lamp; {
+			case l <= 0:
+			case l < minLen:
+				dropped += l
 			default:
-				got += e.Lamp
-				c.events = append(c.events, *e)
+				got += l
 			}
 		}
-		if got < short {
-			for j := n0; j < len(c.events); j++ {
-				c.events[j].Short = true
+		for i := range ps {
+			if p := &ps[i]; p.Lamp >= minLen { // minLen is a minute at least
+				p.Short = got < short
+				c.events = append(c.events, p.event())
 			}
 		}
 		if got == 0 {
@@ -372,9 +368,19 @@ func (c *collector) lighting(k config.Kind) error {
 	return nil
 }
 
+// lampSpan is a lamp period while it is placed: its event and its lamp
+// figures, which the event keeps out of line once it is scheduled (event).
+type lampSpan struct {
+	Event
+	LampFacts
+}
+
+// event returns the period's event with its lamp figures.
+func (p *lampSpan) event() Event { return p.Event.withLamps(p.LampFacts) }
+
 // lampPeriod sets e to the lamp period of kind k on the local date d from
 // start to end, clipped to the limits lim; its Lamp is its length.
-func (c *collector) lampPeriod(e *Event, k config.Kind, d time.Time, part string, start, end time.Time, length time.Duration, direct bool, lim *lampLimits) {
+func (c *collector) lampPeriod(e *lampSpan, k config.Kind, d time.Time, part string, start, end time.Time, length time.Duration, direct bool, lim *lampLimits) {
 	e.Kind, e.Start, e.End, e.Date, e.Part, e.DayLength, e.DirectSun = k, start, end, d, part, length, direct
 	c.clip(e, lim)
 	if !e.End.After(e.Start) {
@@ -389,7 +395,7 @@ func (c *collector) lampPeriod(e *Event, k config.Kind, d time.Time, part string
 // dark around that light and than the limit of its side (earliest_on,
 // latest_off). The instants are compared as Unix nanoseconds, and the
 // period's moving end is made from the instant it is taken from.
-func (c *collector) onePeriod(e *Event, k config.Kind, d time.Time, i int, dl *daylight, short time.Duration, morning, direct bool, lim *lampLimits) {
+func (c *collector) onePeriod(e *lampSpan, k config.Kind, d time.Time, i int, dl *daylight, short time.Duration, morning, direct bool, lim *lampLimits) {
 	// fixed: the sunset the period starts at, or the sunrise it ends at;
 	// the other end lies dist away from it, on the side of sign
 	fixed, dark, sign, part, limited, table, clock := dl.last, dl.duskTo, int64(1), partEvening, lim.hasOff, lim.offAt, lim.off
@@ -475,7 +481,7 @@ func (c *collector) unscheduled(k config.Kind, d time.Time, length, short, dropp
 // the other as far as the other's own limit allows; a period under minLen
 // gives its time to the other, so that the date gets one period of the
 // whole shortfall instead of two too short to schedule.
-func (c *collector) bothPeriods(short, minLen time.Duration, morning, evening func(time.Duration) Event) (Event, Event) {
+func (c *collector) bothPeriods(short, minLen time.Duration, morning, evening func(time.Duration) lampSpan) (lampSpan, lampSpan) {
 	half := short / 2
 	m := morning(half)
 	e := evening(short - m.Lamp) // its half, and what the morning could not take
@@ -486,13 +492,13 @@ func (c *collector) bothPeriods(short, minLen time.Duration, morning, evening fu
 	var dropped time.Duration // the period under minLen, left out
 	if minLen > 0 && m.Lamp > 0 && m.Lamp < minLen {
 		dropped = m.Lamp
-		m, e, why = Event{}, evening(short), MadeUpMinimum
+		m, e, why = lampSpan{}, evening(short), MadeUpMinimum
 	} else if minLen > 0 && e.Lamp > 0 && e.Lamp < minLen {
 		dropped = e.Lamp
-		e, m, why = Event{}, morning(short), MadeUpMinimum
+		e, m, why = lampSpan{}, morning(short), MadeUpMinimum
 	}
 	// a period cut short without a limit is cut by the Sun's light
-	whyFor := func(cut Event) MadeUpReason {
+	whyFor := func(cut lampSpan) MadeUpReason {
 		if why == MadeUpMinimum || cut.Clipped {
 			return why
 		}
@@ -586,7 +592,7 @@ func limitsOf(spec config.KindSpec) lampLimits {
 // clip shortens a lamp period to the limits: the last earliest_on clock
 // time at or before the period's end, and the first latest_off clock time
 // after its start, and marks a period it cuts Clipped.
-func (c *collector) clip(e *Event, lim *lampLimits) {
+func (c *collector) clip(e *lampSpan, lim *lampLimits) {
 	if lim.hasOn && e.Part != partEvening {
 		if t, n := c.onBefore(e.End, lim); e.Start.UnixNano() < n {
 			e.Start, e.Clipped = t, true
@@ -839,6 +845,7 @@ func otherPart(part string) string {
 // in title's array, its form in a row of the date (RowTitle), where the
 // times stand in their own column: "Lamps on for 6 h 44 min, to reach 16 h".
 func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Event) (_, _, row []byte) {
+	l := e.LampFacts()
 	on, off := shownAt(e.Start, s.zone), shownAt(e.End, s.zone)
 	// "Lamps on 16:16–23:00", the dash in UTF-8
 	t := append(title, 'L', 'a', 'm', 'p', 's', ' ', 'o', 'n', ' ',
@@ -855,23 +862,23 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	}
 	t = append(t, ' ', '(')
 	lamp := len(t)
-	t = appendHM(t, e.Lamp) // as the natural day below
+	t = appendHM(t, l.Lamp) // as the natural day below
 	lampHM := t[lamp:]
 	end := lt.reached
-	if e.Short {
+	if l.Short {
 		end = lt.notReached
 	}
 	t = append(append(t, end...), ')')
 	row = append(append(append(t[len(t):], "Lamps on for "...), lampHM...), end...)
 	pi := partIndex(e.Part)
-	if pi < 2 && e.MadeUp <= 0 {
+	if pi < 2 && l.MadeUp <= 0 {
 		// a morning or evening period that makes up for no other (nearly
 		// every period): the text below, its last lines written once
 		// per feed
 		b := append(dst, lampLeads[pi]...)
 		b = append(b, byte('0'+on.h/10), byte('0'+on.h%10), ':', byte('0'+on.m/10), byte('0'+on.m%10), ':', byte('0'+on.s/10), byte('0'+on.s%10), ' ')
 		b = append(b, on.zone...)
-		if e.Clipped && pi == 0 && on.second() != lt.onSec {
+		if l.Clipped && pi == 0 && on.second() != lt.onSec {
 			if m := movedLimit(s.zone, e.Start, lt.on); m != "" {
 				b = append(append(append(b, " ("...), m...), ')')
 			}
@@ -880,13 +887,13 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 			byte('0'+off.h/10), byte('0'+off.h%10), ':', byte('0'+off.m/10), byte('0'+off.m%10), ':', byte('0'+off.s/10), byte('0'+off.s%10), ' ')
 		b = append(s.zone.appendDayMark(append(b, off.zone...), e.End, e.Date), ' ', '(') // " +1 day" after midnight
 		b = append(b, lampHM...)
-		if e.Clipped && pi == 1 && off.second() != lt.offSec {
+		if l.Clipped && pi == 1 && off.second() != lt.offSec {
 			if m := movedLimit(s.zone, e.End, lt.off); m != "" {
 				b = append(append(b, "; off "...), m...)
 			}
 		}
 		b = append(b, lt.open...)
-		return append(appendHM(b, e.DayLength), lt.tail[pi][b2i(e.Clipped)][b2i(e.Short)]...), t, row
+		return append(appendHM(b, e.DayLength), lt.tail[pi][b2i(l.Clipped)][b2i(l.Short)]...), t, row
 	}
 	whole := e.Part == partPolarNight || e.Part == partBehindSkyline // one period round solar noon
 	b := dst
@@ -901,20 +908,20 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		b = append(b, "Evening lamps on at "...)
 	}
 	b = on.appendSecond(b)
-	if e.Clipped && e.Part != partEvening && lt.onSec >= 0 && on.second() != lt.onSec {
+	if l.Clipped && e.Part != partEvening && lt.onSec >= 0 && on.second() != lt.onSec {
 		if m := movedLimit(s.zone, e.Start, lt.on); m != "" {
 			b = append(append(append(b, " ("...), m...), ')')
 		}
 	}
 	b = s.zone.appendDayMark(off.appendSecond(append(b, ", off at "...)), e.End, e.Date)
 	b = append(append(b, " ("...), lampHM...)
-	if e.Clipped && e.Part != partMorning && lt.offSec >= 0 && off.second() != lt.offSec {
+	if l.Clipped && e.Part != partMorning && lt.offSec >= 0 && off.second() != lt.offSec {
 		if m := movedLimit(s.zone, e.End, lt.off); m != "" {
 			b = append(append(b, "; "...), m...)
 		}
 	}
 	switch {
-	case whole && e.Clipped:
+	case whole && l.Clipped:
 		b = append(b, lt.near...)
 	case whole:
 		b = append(b, lt.centred...)
@@ -924,36 +931,36 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	b = append(appendHM(b, e.DayLength), lt.goal...)
 	other := otherPart(e.Part)
 	switch {
-	case whole && e.Clipped && e.Short:
+	case whole && l.Clipped && l.Short:
 		b = append(b, lt.clippedShort[2]...)
-	case whole && e.Clipped:
+	case whole && l.Clipped:
 		b = append(append(append(b, "Moved within the limits ("...), lt.limits...), "): the target is reached.\n"...)
-	case e.MadeUp > 0 && e.MadeUpWhy == MadeUpMinimum && e.Dropped < shortestLamps:
+	case l.MadeUp > 0 && l.MadeUpWhy == MadeUpMinimum && l.Dropped < shortestLamps:
 		b = append(append(append(b, "All of the shortfall in one period: the "...), other...), " period would be under 1 min.\n"...)
-	case e.MadeUp > 0 && e.MadeUpWhy == MadeUpMinimum:
+	case l.MadeUp > 0 && l.MadeUpWhy == MadeUpMinimum:
 		b = append(b, "All of the shortfall in one period: the "...)
-		if e.Dropped.Round(time.Minute) >= lampMinimum(lt.key.minimum) {
-			b = appendDuration(b, e.Dropped, time.Second, false) // "9 min 43 s", not "10 min" under a 10 min minimum
+		if l.Dropped.Round(time.Minute) >= lampMinimum(lt.key.minimum) {
+			b = appendDuration(b, l.Dropped, time.Second, false) // "9 min 43 s", not "10 min" under a 10 min minimum
 		} else {
-			b = appendHM(b, e.Dropped)
+			b = appendHM(b, l.Dropped)
 		}
 		b = append(b, ' ')
 		b = append(append(append(append(b, other...), " period would be under the minimum of "...), lt.minimum...), ".\n"...)
-	case e.MadeUp > 0 && e.MadeUpWhy == MadeUpDark:
-		b = sentenceHM(b, e.MadeUp)
+	case l.MadeUp > 0 && l.MadeUpWhy == MadeUpDark:
+		b = sentenceHM(b, l.MadeUp)
 		b = append(append(append(b, " longer than half the shortfall: the short night leaves no more time for the "...), other...), " lamps.\n"...)
-	case e.MadeUp > 0:
-		b = sentenceHM(b, e.MadeUp)
+	case l.MadeUp > 0:
+		b = sentenceHM(b, l.MadeUp)
 		b = append(append(append(b, " longer than half the shortfall, to make up for the "...), other...), " lamps, which are clipped ("...)
 		b = append(append(b, lt.partLimit(other)...), ").\n"...)
 	}
 	switch {
 	case whole:
-	case e.Clipped && e.Short:
+	case l.Clipped && l.Short:
 		b = append(b, lt.clippedShort[pi]...)
-	case e.Clipped:
+	case l.Clipped:
 		b = append(b, lt.clippedMade[pi]...)
-	case e.Short:
+	case l.Short:
 		b = append(b, "The target is not reached today.\n"...)
 	}
 	return b[:len(b)-1], t, row // without the last line's newline

@@ -148,8 +148,8 @@ func TestLightingAgainstUSNO(t *testing.T) {
 						e.Start.In(zone).Format("15:04:05"), e.End.In(zone).Format("15:04:05"),
 						tc.starts[i].Format("15:04"), tc.ends[i].Format("15:04"))
 				}
-				if e.Lamp != e.End.Sub(e.Start) || e.Short {
-					t.Errorf("%s %s: lamp %s, short %v", day.date, tc.name, e.Lamp, e.Short)
+				if l := e.LampFacts(); l.Lamp != e.End.Sub(e.Start) || l.Short {
+					t.Errorf("%s %s: lamp %s, short %v", day.date, tc.name, l.Lamp, l.Short)
 				}
 			}
 			checked++
@@ -178,7 +178,7 @@ func TestLightingPolarUSNO(t *testing.T) {
 		return evs, notes
 	}
 	evs, notes := run("2015-12-21")
-	if len(evs) != 1 || len(notes) != 0 || evs[0].Part != partPolarNight || evs[0].Lamp != 16*time.Hour {
+	if len(evs) != 1 || len(notes) != 0 || evs[0].Part != partPolarNight || evs[0].LampFacts().Lamp != 16*time.Hour {
 		t.Fatalf("polar night: %+v %+v, want one 16 h period", evs, notes)
 	}
 	// solar noon at longitude 0 on 21 December: 12:00 UT − equation of

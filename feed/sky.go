@@ -37,24 +37,55 @@ type Event struct {
 	SeasonLength time.Duration // seasons: time until the next season starts
 	Azimuth      float64       // sunrise/sunset/moonrise/moonset: direction, degrees from north through east
 	Low, High    float64       // golden-hour, blue-hour, sun-band: the altitude bounds, degrees
+	Illuminated  float64       // Moon events: illuminated fraction 0..1
 	DirectSun    bool          // DayLength is the direct Sun over a skyline (sunrise, sunset, daily summary, photoperiod, lighting)
 	LongDay      bool          // sunset: it ends a period of more than a day above the horizon (midnight sun); DayLength and DayChange are zero
 	Open         bool          // a band's span not left again before the window ends (near a pole): End is the end of the window
-	Illuminated  float64       // Moon events: illuminated fraction 0..1
 	Waxing       bool          // Moon events: the Moon is waxing
-	Lamp         time.Duration // lighting: length of the lamp period
-	Short        bool          // lighting: the date's lamps fall short of the target (clipped by latest_off/earliest_on)
-	Clipped      bool          // lighting: this period was cut by latest_off/earliest_on
-	MadeUpWhy    MadeUpReason  // lighting, lamps both: why this period is longer than its half (MadeUp)
-	MadeUp       time.Duration // lighting, lamps both: how much longer than its half this period is
-	Dropped      time.Duration // lighting, lamps both, MadeUpWhy MadeUpMinimum: the length of the other period, left out
-	// Eclipses: the local circumstances (one of the two is set).
-	Solar *astro.LocalSolarEclipse
-	Lunar *astro.LocalLunarEclipse
-	// Eclipses at a site with a skyline (Skyline true): the spans of the
-	// eclipse with the body over the skyline, none when it stays behind it.
-	Skyline bool
-	Visible []astro.Span
+
+	// more holds the facts only lighting and eclipse events have, read
+	// through LampFacts and EclipseFacts; nil for every other kind.
+	more *eventMore
+}
+
+// eventMore is what an Event keeps out of line: the facts of the two
+// families that have more to say than an instant and a few numbers, so
+// that the events of every other kind stay small (a listing's chunk holds
+// thousands of them, each written for the first time).
+type eventMore struct {
+	lamps   LampFacts
+	eclipse EclipseFacts
+}
+
+// LampFacts are a lighting event's figures of its lamp period
+// (Event.LampFacts).
+type LampFacts struct {
+	Lamp      time.Duration // length of the lamp period
+	MadeUp    time.Duration // lamps both: how much longer than its half this period is
+	Dropped   time.Duration // lamps both, MadeUpWhy MadeUpMinimum: the length of the other period, left out
+	MadeUpWhy MadeUpReason  // lamps both: why this period is longer than its half (MadeUp)
+	Short     bool          // the date's lamps fall short of the target (clipped by latest_off/earliest_on)
+	Clipped   bool          // this period was cut by latest_off/earliest_on
+}
+
+// LampFacts returns a lighting event's lamp figures, zero for other kinds.
+func (e Event) LampFacts() LampFacts {
+	if e.more == nil {
+		return LampFacts{}
+	}
+	return e.more.lamps
+}
+
+// withLamps returns e with the lamp figures l (a lighting event).
+func (e Event) withLamps(l LampFacts) Event {
+	e.more = &eventMore{lamps: l}
+	return e
+}
+
+// withEclipse returns e with the eclipse circumstances x (an eclipse event).
+func (e Event) withEclipse(x EclipseFacts) Event {
+	e.more = &eventMore{eclipse: x}
+	return e
 }
 
 // MadeUpReason says why a lamp period of lamps: both is longer than its
@@ -98,19 +129,19 @@ func isBand(k config.Kind) bool {
 // EclipseFacts returns the eclipse circumstances of an event, nil for
 // other kinds.
 func (e Event) EclipseFacts() *EclipseFacts {
-	if e.Solar == nil && e.Lunar == nil {
+	if e.more == nil || e.more.eclipse.Solar == nil && e.more.eclipse.Lunar == nil {
 		return nil
 	}
-	return &EclipseFacts{Solar: e.Solar, Lunar: e.Lunar, Skyline: e.Skyline, Visible: e.Visible}
+	return &e.more.eclipse
 }
 
-// seen reports whether an eclipse event's body is over the site's skyline
-// at t (always, at a site without a skyline).
-func (e Event) seen(t time.Time) bool {
-	if !e.Skyline {
+// seen reports whether an eclipse's body is over the site's skyline at t
+// (always, at a site without a skyline).
+func (x *EclipseFacts) seen(t time.Time) bool {
+	if !x.Skyline {
 		return true
 	}
-	for _, s := range e.Visible {
+	for _, s := range x.Visible {
 		if !t.Before(s.Start) && !t.After(s.End) {
 			return true
 		}

@@ -527,8 +527,9 @@ func toJSONEvent(e feed.Event) jsonEvent {
 		j.DayChange = roundTo(e.DayChange.Seconds(), 3)
 	}
 	if e.Kind.Name == config.KindLighting {
-		l := math.Round(e.Lamp.Seconds()*1000) / 1000
-		j.Lamp, j.Short = &l, e.Short
+		lf := e.LampFacts()
+		l := math.Round(lf.Lamp.Seconds()*1000) / 1000
+		j.Lamp, j.Short = &l, lf.Short
 	}
 	j.jsonEclipse = eclipseJSON(e.EclipseFacts())
 	if strings.Contains(e.Kind.Name, "moon") || e.Kind.Name == "first-quarter" || e.Kind.Name == "last-quarter" {

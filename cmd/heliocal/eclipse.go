@@ -103,9 +103,11 @@ func eclipseDetails(e *feed.Event, loc *time.Location) []string {
 			parts = append(parts, fmt.Sprintf("%s %s %s", body, verb, clock(h.Time, loc)))
 		}
 	}
+	x := e.EclipseFacts()
 	switch {
-	case e.Solar != nil:
-		l := e.Solar
+	case x == nil:
+	case x.Solar != nil:
+		l := x.Solar
 		parts = append(parts, l.Type.String(), fmt.Sprintf("max %s", clock(l.Max.Time, loc)),
 			fmt.Sprintf("magnitude %.3f", l.Magnitude), fmt.Sprintf("obscuration %.3f", l.Obscuration))
 		if !l.C2.IsZero() {
@@ -115,14 +117,14 @@ func eclipseDetails(e *feed.Event, loc *time.Location) []string {
 			parts = append(parts, "max below the horizon")
 		}
 		horizon(l.Horizon, "Sun")
-	case e.Lunar != nil:
-		l := e.Lunar.Eclipse
+	case x.Lunar != nil:
+		l := x.Lunar.Eclipse
 		parts = append(parts, l.Type.String(), fmt.Sprintf("max %s", clock(l.Max, loc)),
 			"umbral magnitude "+signed(l.UmbralMagnitude, 3))
-		if !e.Lunar.Max.Up {
+		if !x.Lunar.Max.Up {
 			parts = append(parts, "max below the horizon")
 		}
-		horizon(e.Lunar.Horizon, "Moon")
+		horizon(x.Lunar.Horizon, "Moon")
 	}
 	return parts
 }
@@ -130,11 +132,13 @@ func eclipseDetails(e *feed.Event, loc *time.Location) []string {
 // eclipseMark is the year chart's label of an eclipse: "partial solar
 // eclipse", "total lunar eclipse".
 func eclipseMark(e feed.Event) string {
+	x := e.EclipseFacts()
 	switch {
-	case e.Solar != nil:
-		return e.Solar.Type.String() + " solar eclipse"
-	case e.Lunar != nil:
-		return e.Lunar.Eclipse.Type.String() + " lunar eclipse"
+	case x == nil:
+	case x.Solar != nil:
+		return x.Solar.Type.String() + " solar eclipse"
+	case x.Lunar != nil:
+		return x.Lunar.Eclipse.Type.String() + " lunar eclipse"
 	}
 	return e.Kind.Name
 }

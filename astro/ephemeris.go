@@ -375,8 +375,9 @@ func sunSamples(start float64, k0, k1 int, put func(b0 int, gha, dec, dist []flo
 }
 
 // Direction tells whether the Sun or the Moon crosses a threshold going up
-// (Rising) or down (Setting).
-type Direction int
+// (Rising) or down (Setting); a byte, so that it packs beside a few flags
+// in the structs that hold one.
+type Direction int8
 
 // Directions of a crossing.
 const (

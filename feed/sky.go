@@ -20,8 +20,6 @@ type Event struct {
 	Kind config.Kind
 	// Start is the instant (UTC); End is the end of a span, zero for an instant.
 	Start, End time.Time
-	// Direction is set for threshold crossings: astro.Rising or astro.Setting.
-	Direction astro.Direction
 	// Date is the site-local date of Start, at 00:00 UTC.
 	Date time.Time
 	// Part distinguishes the occurrences of a span kind on one date:
@@ -42,6 +40,8 @@ type Event struct {
 	LongDay      bool          // sunset: it ends a period of more than a day above the horizon (midnight sun); DayLength and DayChange are zero
 	Open         bool          // a band's span not left again before the window ends (near a pole): End is the end of the window
 	Waxing       bool          // Moon events: the Moon is waxing
+	// Direction is set for threshold crossings: astro.Rising or astro.Setting.
+	Direction astro.Direction
 
 	// more holds the facts only lighting and eclipse events have, read
 	// through LampFacts and EclipseFacts; nil for every other kind.

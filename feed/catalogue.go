@@ -1193,11 +1193,11 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 	}
 	// field by field into the zero entry: no Facts made and copied
 	f := &en.Facts
-	f.Part, f.Direction, f.Altitude, f.Azimuth, f.Distance = e.Part, e.Direction, e.Altitude, e.Azimuth, e.Distance
+	f.Part, f.Direction, f.Altitude, f.Azimuth = e.Part, e.Direction, e.Altitude, e.Azimuth
 	f.Illuminated, f.DayLength, f.DirectSun = e.Illuminated, e.DayLength, e.DirectSun
 	f.Open, f.LongDay = e.Open, e.LongDay
-	if e.more != nil { // a lamp period or an eclipse
-		f.Lamp, f.Short = e.more.lamps.Lamp, e.more.lamps.Short
+	if e.more != nil { // a lamp period, an eclipse, a perihelion or aphelion, a season
+		f.Lamp, f.Short, f.Distance = e.more.lamps.Lamp, e.more.lamps.Short, e.more.distance
 		f.Eclipse = e.EclipseFacts()
 	}
 	if entryAllDay(spec, &e.Kind) {

@@ -28,33 +28,52 @@ type Event struct {
 	Part string
 
 	// Values quoted in descriptions; zero when they do not apply.
-	Altitude     float64       // solar noon: the Sun's altitude, degrees; a band's span of part "all-day" ("night"): the Sun's highest (lowest) altitude in it
-	Distance     float64       // perihelion/aphelion: Earth–Sun distance, au
-	DayLength    time.Duration // sunrise/sunset/photoperiod: time the Sun is up on Date
-	DayChange    time.Duration // DayLength minus the previous date's
-	SeasonLength time.Duration // seasons: time until the next season starts
-	Azimuth      float64       // sunrise/sunset/moonrise/moonset: direction, degrees from north through east
-	Low, High    float64       // golden-hour, blue-hour, sun-band: the altitude bounds, degrees
-	Illuminated  float64       // Moon events: illuminated fraction 0..1
-	DirectSun    bool          // DayLength is the direct Sun over a skyline (sunrise, sunset, daily summary, photoperiod, lighting)
-	LongDay      bool          // sunset: it ends a period of more than a day above the horizon (midnight sun); DayLength and DayChange are zero
-	Open         bool          // a band's span not left again before the window ends (near a pole): End is the end of the window
-	Waxing       bool          // Moon events: the Moon is waxing
+	Altitude    float64       // solar noon: the Sun's altitude, degrees; a band's span of part "all-day" ("night"): the Sun's highest (lowest) altitude in it
+	DayLength   time.Duration // sunrise/sunset/photoperiod: time the Sun is up on Date
+	DayChange   time.Duration // DayLength minus the previous date's
+	Azimuth     float64       // sunrise/sunset/moonrise/moonset: direction, degrees from north through east
+	Low, High   float64       // golden-hour, blue-hour, sun-band: the altitude bounds, degrees
+	Illuminated float64       // Moon events: illuminated fraction 0..1
+	DirectSun   bool          // DayLength is the direct Sun over a skyline (sunrise, sunset, daily summary, photoperiod, lighting)
+	LongDay     bool          // sunset: it ends a period of more than a day above the horizon (midnight sun); DayLength and DayChange are zero
+	Open        bool          // a band's span not left again before the window ends (near a pole): End is the end of the window
+	Waxing      bool          // Moon events: the Moon is waxing
 	// Direction is set for threshold crossings: astro.Rising or astro.Setting.
 	Direction astro.Direction
 
-	// more holds the facts only lighting and eclipse events have, read
-	// through LampFacts and EclipseFacts; nil for every other kind.
+	// more holds the facts of the kinds whose events are few or have more
+	// to say (lighting, eclipses, perihelion and aphelion, seasons), read
+	// through LampFacts, EclipseFacts, Distance and SeasonLength; nil for
+	// every other kind.
 	more *eventMore
 }
 
-// eventMore is what an Event keeps out of line: the facts of the two
-// families that have more to say than an instant and a few numbers, so
-// that the events of every other kind stay small (a listing's chunk holds
-// thousands of them, each written for the first time).
+// eventMore is what an Event keeps out of line, so that the events of the
+// daily kinds stay small: a listing's chunk holds thousands of them, each
+// written for the first time.
 type eventMore struct {
-	lamps   LampFacts
-	eclipse EclipseFacts
+	lamps    LampFacts
+	eclipse  EclipseFacts
+	distance float64       // perihelion, aphelion: the Earth–Sun distance, au
+	season   time.Duration // seasons: the time until the next season starts
+}
+
+// Distance returns a perihelion's or aphelion's Earth–Sun distance in au,
+// zero for other kinds.
+func (e Event) Distance() float64 {
+	if e.more == nil {
+		return 0
+	}
+	return e.more.distance
+}
+
+// SeasonLength returns, for the start of a season, the time until the next
+// season starts; zero for other kinds.
+func (e Event) SeasonLength() time.Duration {
+	if e.more == nil {
+		return 0
+	}
+	return e.more.season
 }
 
 // LampFacts are a lighting event's figures of its lamp period
@@ -2120,7 +2139,7 @@ func (c *collector) seasons(k config.Kind) error {
 		if k.Name == "seasons" {
 			kk = config.Kind{Name: name}
 		}
-		c.events = append(c.events, Event{Kind: kk, Start: all[i], Date: d, SeasonLength: all[i+1].Sub(all[i])})
+		c.events = append(c.events, Event{Kind: kk, Start: all[i], Date: d, more: &eventMore{season: all[i+1].Sub(all[i])}})
 	}
 	return nil
 }
@@ -2164,7 +2183,7 @@ func (c *collector) apsides(k config.Kind) error {
 		t, r := a.t, a.r
 		d := localDate(t, c.p.Location)
 		if c.inRange(d) {
-			c.events = append(c.events, Event{Kind: k, Start: t, Date: d, Distance: r})
+			c.events = append(c.events, Event{Kind: k, Start: t, Date: d, more: &eventMore{distance: r}})
 		}
 	}
 	return nil

@@ -999,7 +999,7 @@ func describe(s *siteInfo, e Event) (title, row, desc string) {
 	case "march-equinox", "june-solstice", "september-equinox", "december-solstice":
 		season := seasonStarted(e.Kind.Name, s.Latitude)
 		fmt.Fprintf(&b, "%s at %s (%s UTC).\nStart of astronomical %s in the %s hemisphere; it lasts %s, until the next equinox or solstice.",
-			title, at, ToSecond(e.Start).UTC().Format("2006-01-02 15:04:05"), season, hemisphere(s.Latitude), days(e.SeasonLength))
+			title, at, ToSecond(e.Start).UTC().Format("2006-01-02 15:04:05"), season, hemisphere(s.Latitude), days(e.SeasonLength()))
 		b.WriteString(FutureNote(e.Start))
 		title = fmt.Sprintf("%s: %s begins", title, season) // lower case after the colon, as every title
 	case "cross-quarter":
@@ -1012,7 +1012,7 @@ func describe(s *siteInfo, e Event) (title, row, desc string) {
 		}
 		title = fmt.Sprintf("%s: Earth %s the Sun", title, near)
 		fmt.Fprintf(&b, "Earth is %s the Sun at %s (%s UTC): %.6f au (%s km).", near, at,
-			ToSecond(e.Start).UTC().Format("2006-01-02 15:04:05"), e.Distance, FormatCount(int(math.Round(e.Distance*149597870.7))))
+			ToSecond(e.Start).UTC().Format("2006-01-02 15:04:05"), e.Distance(), FormatCount(int(math.Round(e.Distance()*149597870.7))))
 		b.WriteString(FutureNote(e.Start))
 	case "photoperiod":
 		what := "Day length"

@@ -500,7 +500,7 @@ func toJSONEvent(e feed.Event) jsonEvent {
 		a := math.Round(e.Altitude*1e4) / 1e4
 		j.Altitude = &a
 	case e.Kind.Name == "perihelion" || e.Kind.Name == "aphelion":
-		r := e.Distance
+		r := e.Distance()
 		j.Distance = &r
 	}
 	if hasAzimuth(e) {
@@ -659,7 +659,7 @@ func detailsAt(e *feed.Event, loc *time.Location, o astro.Observer) string {
 	case "solar-noon", "moon-transit":
 		parts = append(parts, fmt.Sprintf("altitude %s°", signed(e.Altitude, 2)))
 	case "perihelion", "aphelion":
-		parts = append(parts, fmt.Sprintf("%.6f au", e.Distance))
+		parts = append(parts, fmt.Sprintf("%.6f au", e.Distance()))
 	}
 	if e.Illuminated > 0 {
 		// as the feeds write it ("22 % lit"), half a percent rounding up

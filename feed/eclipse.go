@@ -68,7 +68,8 @@ func (c *collector) eclipses(k config.Kind) error {
 				return err
 			}
 		}
-		c.events = append(c.events, e.withEclipse(x))
+		e.more = &eventMore{eclipse: x}
+		c.events = append(c.events, e)
 		return nil
 	}
 	if k.Name == "solar-eclipse" {

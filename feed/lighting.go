@@ -280,7 +280,7 @@ func (c *collector) lighting(k config.Kind) error {
 				got, dropped = 0, p.Lamp
 			default:
 				p.Short = got < short
-				c.events = append(c.events, p.event())
+				c.events = append(c.events, c.lampEvent(&p))
 			}
 			if got == 0 {
 				c.unscheduled(k, d, dl.length, short, dropped, minLen, &lim)
@@ -358,7 +358,7 @@ func (c *collector) lighting(k config.Kind) error {
 		for i := range ps {
 			if p := &ps[i]; p.Lamp >= minLen { // minLen is a minute at least
 				p.Short = got < short
-				c.events = append(c.events, p.event())
+				c.events = append(c.events, c.lampEvent(p))
 			}
 		}
 		if got == 0 {
@@ -369,14 +369,26 @@ func (c *collector) lighting(k config.Kind) error {
 }
 
 // lampSpan is a lamp period while it is placed: its event and its lamp
-// figures, which the event keeps out of line once it is scheduled (event).
+// figures, which the event keeps out of line once it is scheduled
+// (lampEvent).
 type lampSpan struct {
 	Event
 	LampFacts
 }
 
-// event returns the period's event with its lamp figures.
-func (p *lampSpan) event() Event { return p.Event.withLamps(p.LampFacts) }
+// lampEvent returns the event of the lamp period p, its lamp figures kept
+// in a block of them (a lighting kind has one or two periods a date: one
+// allocation each would cost more than placing the period).
+func (c *collector) lampEvent(p *lampSpan) Event {
+	if len(c.lamps) == 0 {
+		c.lampBlock = min(max(2*c.lampBlock, 8), 512)
+		c.lamps = make([]eventMore, c.lampBlock)
+	}
+	e := p.Event
+	e.more, c.lamps = &c.lamps[0], c.lamps[1:]
+	e.more.lamps = p.LampFacts
+	return e
+}
 
 // lampPeriod sets e to the lamp period of kind k on the local date d from
 // start to end, clipped to the limits lim; its Lamp is its length.

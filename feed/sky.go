@@ -95,18 +95,6 @@ func (e Event) LampFacts() LampFacts {
 	return e.more.lamps
 }
 
-// withLamps returns e with the lamp figures l (a lighting event).
-func (e Event) withLamps(l LampFacts) Event {
-	e.more = &eventMore{lamps: l}
-	return e
-}
-
-// withEclipse returns e with the eclipse circumstances x (an eclipse event).
-func (e Event) withEclipse(x EclipseFacts) Event {
-	e.more = &eventMore{eclipse: x}
-	return e
-}
-
 // MadeUpReason says why a lamp period of lamps: both is longer than its
 // half of the shortfall (Event.MadeUpWhy); a byte, so that it takes no
 // room in an Event beside the lighting flags.
@@ -863,6 +851,10 @@ type collector struct {
 	thresholds   map[float64]*threshold
 	maxLit       float64         // dark-window: the Moon's largest illuminated fraction still dark
 	spec         config.KindSpec // the options of the kind being added (lighting)
+	// lamps is the rest of a block of room for the lamp periods' figures
+	// (lampEvent), lampBlock the block's length
+	lamps     []eventMore
+	lampBlock int
 	// xsBuf, when set, holds slices the first pass of prepare fills (a
 	// chunk's buffers, reused from chunk to chunk)
 	xsBuf *[][]astro.Crossing

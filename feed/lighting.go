@@ -269,18 +269,22 @@ func (c *collector) lighting(k config.Kind) error {
 		short := k.DayLength - dl.length
 		direct := alt == skylineKey
 		if dl.length > 0 && lamps != config.LampsBoth {
-			// one period, from sunset or to sunrise
-			var p lampSpan
-			c.onePeriod(&p, k, d, i, dl, short, lamps == config.LampsMorning, direct, &lim)
-			got, dropped := p.Lamp, time.Duration(0)
+			// one period, from sunset or to sunrise: written in place
+			c.events = append(c.events, Event{})
+			e := &c.events[len(c.events)-1]
+			var l LampFacts
+			c.onePeriod(e, &l, k, d, i, dl, short, lamps == config.LampsMorning, direct, &lim)
+			got, dropped := l.Lamp, time.Duration(0)
 			switch {
 			case got <= 0:
 				got = 0
+				c.events = c.events[:len(c.events)-1]
 			case got < minLen:
-				got, dropped = 0, p.Lamp
+				got, dropped = 0, l.Lamp
+				c.events = c.events[:len(c.events)-1]
 			default:
-				p.Short = got < short
-				c.events = append(c.events, c.lampEvent(&p))
+				l.Short = got < short
+				e.more = c.keepLamps(l)
 			}
 			if got == 0 {
 				c.unscheduled(k, d, dl.length, short, dropped, minLen, &lim)
@@ -358,7 +362,9 @@ func (c *collector) lighting(k config.Kind) error {
 		for i := range ps {
 			if p := &ps[i]; p.Lamp >= minLen { // minLen is a minute at least
 				p.Short = got < short
-				c.events = append(c.events, c.lampEvent(p))
+				e := p.Event
+				e.more = c.keepLamps(p.LampFacts)
+				c.events = append(c.events, e)
 			}
 		}
 		if got == 0 {
@@ -368,26 +374,27 @@ func (c *collector) lighting(k config.Kind) error {
 	return nil
 }
 
-// lampSpan is a lamp period while it is placed: its event and its lamp
-// figures, which the event keeps out of line once it is scheduled
-// (lampEvent).
+// lampSpan is a lamp period of lamps: both, or of polar night, while it
+// is placed: its event and its lamp figures, which the event keeps out of
+// line once it is scheduled (keepLamps).
 type lampSpan struct {
 	Event
 	LampFacts
 }
 
-// lampEvent returns the event of the lamp period p, its lamp figures kept
-// in a block of them (a lighting kind has one or two periods a date: one
-// allocation each would cost more than placing the period).
-func (c *collector) lampEvent(p *lampSpan) Event {
+// keepLamps returns the out-of-line facts of an event with the lamp
+// figures l, taken from a block of them (a lighting kind has one or two
+// periods a date: one allocation each would cost more than placing the
+// period).
+func (c *collector) keepLamps(l LampFacts) *eventMore {
 	if len(c.lamps) == 0 {
 		c.lampBlock = min(max(2*c.lampBlock, 8), 512)
 		c.lamps = make([]eventMore, c.lampBlock)
 	}
-	e := p.Event
-	e.more, c.lamps = &c.lamps[0], c.lamps[1:]
-	e.more.lamps = p.LampFacts
-	return e
+	m := &c.lamps[0]
+	c.lamps = c.lamps[1:]
+	m.lamps = l
+	return m
 }
 
 // lampPeriod sets e to the lamp period of kind k on the local date d from
@@ -401,13 +408,14 @@ func (c *collector) lampPeriod(e *lampSpan, k config.Kind, d time.Time, part str
 	e.Lamp = e.End.Sub(e.Start)
 }
 
-// onePeriod sets e to the one lamp period of the local date d (lamps:
-// morning or evening), as lampPeriod places it: the lamp time short before
-// the date's first light (morning) or after its last, no further than the
-// dark around that light and than the limit of its side (earliest_on,
-// latest_off). The instants are compared as Unix nanoseconds, and the
-// period's moving end is made from the instant it is taken from.
-func (c *collector) onePeriod(e *lampSpan, k config.Kind, d time.Time, i int, dl *daylight, short time.Duration, morning, direct bool, lim *lampLimits) {
+// onePeriod sets e and its lamp figures l to the one lamp period of the
+// local date d (lamps: morning or evening), as lampPeriod places it: the
+// lamp time short before the date's first light (morning) or after its
+// last, no further than the dark around that light and than the limit of
+// its side (earliest_on, latest_off). The instants are compared as Unix
+// nanoseconds, and the period's moving end is made from the instant it is
+// taken from.
+func (c *collector) onePeriod(e *Event, l *LampFacts, k config.Kind, d time.Time, i int, dl *daylight, short time.Duration, morning, direct bool, lim *lampLimits) {
 	// fixed: the sunset the period starts at, or the sunrise it ends at;
 	// the other end lies dist away from it, on the side of sign
 	fixed, dark, sign, part, limited, table, clock := dl.last, dl.duskTo, int64(1), partEvening, lim.hasOff, lim.offAt, lim.off
@@ -455,7 +463,7 @@ func (c *collector) onePeriod(e *lampSpan, k config.Kind, d time.Time, i int, dl
 		end, dist = start, 0
 	}
 	e.Kind, e.Start, e.End, e.Date, e.Part, e.DayLength, e.DirectSun = k, start, end, d, part, dl.length, direct
-	e.Clipped, e.Lamp = by == 2, time.Duration(dist)
+	l.Clipped, l.Lamp = by == 2, time.Duration(dist)
 }
 
 // shortestLamps is the shortest lamp period scheduled whatever the

@@ -60,7 +60,7 @@ type eventMore struct {
 
 // Distance returns a perihelion's or aphelion's Earth–Sun distance in au,
 // zero for other kinds.
-func (e Event) Distance() float64 {
+func (e *Event) Distance() float64 {
 	if e.more == nil {
 		return 0
 	}
@@ -69,7 +69,7 @@ func (e Event) Distance() float64 {
 
 // SeasonLength returns, for the start of a season, the time until the next
 // season starts; zero for other kinds.
-func (e Event) SeasonLength() time.Duration {
+func (e *Event) SeasonLength() time.Duration {
 	if e.more == nil {
 		return 0
 	}
@@ -88,7 +88,7 @@ type LampFacts struct {
 }
 
 // LampFacts returns a lighting event's lamp figures, zero for other kinds.
-func (e Event) LampFacts() LampFacts {
+func (e *Event) LampFacts() LampFacts {
 	if e.more == nil {
 		return LampFacts{}
 	}
@@ -135,7 +135,7 @@ func isBand(k config.Kind) bool {
 
 // EclipseFacts returns the eclipse circumstances of an event, nil for
 // other kinds.
-func (e Event) EclipseFacts() *EclipseFacts {
+func (e *Event) EclipseFacts() *EclipseFacts {
 	if e.more == nil || e.more.eclipse.Solar == nil && e.more.eclipse.Lunar == nil {
 		return nil
 	}
@@ -852,7 +852,7 @@ type collector struct {
 	maxLit       float64         // dark-window: the Moon's largest illuminated fraction still dark
 	spec         config.KindSpec // the options of the kind being added (lighting)
 	// lamps is the rest of a block of room for the lamp periods' figures
-	// (lampEvent), lampBlock the block's length
+	// (keepLamps), lampBlock the block's length
 	lamps     []eventMore
 	lampBlock int
 	// xsBuf, when set, holds slices the first pass of prepare fills (a

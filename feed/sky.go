@@ -96,8 +96,8 @@ func (e *Event) LampFacts() LampFacts {
 }
 
 // MadeUpReason says why a lamp period of lamps: both is longer than its
-// half of the shortfall (Event.MadeUpWhy); a byte, so that it takes no
-// room in an Event beside the lighting flags.
+// half of the shortfall (LampFacts.MadeUpWhy); a byte, so that it packs
+// beside the lighting flags.
 type MadeUpReason uint8
 
 const (

@@ -172,8 +172,10 @@ func darkSpansBrute(a, b time.Time, sun, moon []Crossing, up0 bool) []Span {
 	return out
 }
 
-// TestSkylineEmpty: every skyline query refuses a skyline without points
-// with an *InputError naming the skyline.
+// TestSkylineEmpty: NewSkyline and every skyline query refuse a skyline
+// without points with an *InputError that says what the 0 counts
+// ("astro: skyline points 0: …", not "skyline 0", which reads as an
+// azimuth).
 func TestSkylineEmpty(t *testing.T) {
 	from := time.Date(2027, 3, 1, 0, 0, 0, 0, time.UTC)
 	e, err := NewMoonEphemeris(from, from.AddDate(0, 0, 3))
@@ -185,9 +187,10 @@ func TestSkylineEmpty(t *testing.T) {
 	_, errSun := e.sun.SunSkylineCrossings(o, nil, from, to)
 	_, errMoon := e.MoonSkylineCrossings(o, nil, from, to)
 	_, errDark := e.DarkSkylineWindows(context.Background(), o, nil, time.UTC, from, from, 0)
-	for name, err := range map[string]error{"SunSkylineCrossings": errSun, "MoonSkylineCrossings": errMoon, "DarkSkylineWindows": errDark} {
+	_, errNew := NewSkyline(nil)
+	for name, err := range map[string]error{"SunSkylineCrossings": errSun, "MoonSkylineCrossings": errMoon, "DarkSkylineWindows": errDark, "NewSkyline": errNew} {
 		var ie *InputError
-		if !errors.As(err, &ie) || ie.Field != "skyline" {
+		if !errors.As(err, &ie) || err.Error() != "astro: skyline points 0: needs at least one [azimuth, altitude] point" {
 			t.Errorf("%s: error %v, want an *InputError for the skyline", name, err)
 		}
 	}

@@ -258,10 +258,10 @@ const ephemerisMargin = 2 * 24 * time.Hour
 // NewEphemeris builds the Sun's track for queries within [from − 2 days,
 // to + 2 days]. from and to must lie within MinTime..MaxTime (else a
 // *RangeError) and from must not be after to. The days within the shipped
-// table (1989-12-28..2101-01-05: any span within 1990..2100, see
-// suntable.go) are read from it; the others are computed, at a cost per day
-// of the nutation and 148 of VSOP87D's terms, plus 20 evaluations of the
-// rest per 256 days (see chebyshev.go).
+// table (1989-12-28..2101-01-05: any span within 1990..2100) are read
+// from it; the others are computed, at a cost per day of the nutation and
+// 148 of VSOP87D's terms, plus 20 evaluations of the rest per 256 days
+// (a Chebyshev fit of the smaller terms).
 func NewEphemeris(from, to time.Time) (*Ephemeris, error) {
 	return newEphemeris(from, to, true)
 }

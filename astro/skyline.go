@@ -49,7 +49,7 @@ type Skyline []SkyPoint
 // is a skyline at one altitude in every direction.
 func NewSkyline(points []SkyPoint) (Skyline, error) {
 	if len(points) == 0 {
-		return nil, &InputError{"skyline", 0, "needs at least one [azimuth, altitude] point"}
+		return nil, &InputError{"skyline points", 0, "needs at least one [azimuth, altitude] point"}
 	}
 	s := make(Skyline, len(points))
 	for i, p := range points {
@@ -283,7 +283,7 @@ func (e *MoonEphemeris) moonSkyline(o Observer, st *site, sky Skyline, a, b floa
 // skyline query refuses.
 func (s Skyline) check() error {
 	if len(s) == 0 {
-		return &InputError{"skyline", 0, "needs at least one point"}
+		return &InputError{"skyline points", 0, "needs at least one [azimuth, altitude] point"}
 	}
 	return nil
 }

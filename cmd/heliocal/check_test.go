@@ -7,6 +7,7 @@ import (
 	"errors"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 )
@@ -146,7 +147,7 @@ func TestCheckJSON(t *testing.T) {
 
 // check's table writes a kinds entry with its offset, so that a reminder
 // before sunrise reads apart from the sunrise itself; the JSON keeps the
-// kind names.
+// kind names in kinds and gives the table's form in kinds_shown.
 func TestCheckShowsOffsets(t *testing.T) {
 	cfg := writeConfig(t, `sites:
   - {id: finca-guira, latitude: 22.85, longitude: -82.5, timezone: America/Havana}
@@ -161,8 +162,35 @@ feeds:
 		t.Errorf("exit %d, table:\n%s%s\nwant the kinds sunrise,sunrise-30m,sunset+15m", code, out, errOut)
 	}
 	_, js, _ := runCLI(t, "check", "--config", cfg, "--format", "json")
-	if !strings.Contains(js, `"sunrise",`) || strings.Contains(js, "sunrise-30m") {
-		t.Errorf("JSON kinds changed: %s", js)
+	var r checkReport
+	if err := json.Unmarshal([]byte(js), &r); err != nil || len(r.Feeds) != 1 {
+		t.Fatalf("%v\n%s", err, js)
+	}
+	if got, want := r.Feeds[0].Kinds, []string{"sunrise", "sunrise", "sunset"}; !slices.Equal(got, want) {
+		t.Errorf("JSON kinds %q, want %q", got, want)
+	}
+	if got, want := r.Feeds[0].KindsShown, []string{"sunrise", "sunrise-30m", "sunset+15m"}; !slices.Equal(got, want) {
+		t.Errorf("JSON kinds_shown %q, want %q", got, want)
+	}
+}
+
+// Two kinds entries of a feed differ in their kind or their offset: the
+// other options of an entry (label, alarm, min_duration, weekdays, months,
+// dates) do not make another entry, so the kind and the offset that
+// check's table and kinds_shown write tell every entry apart.
+func TestCheckEntriesApartByOffset(t *testing.T) {
+	for _, opt := range []string{"label: Close the shutters", "alarm: 10m", "min_duration: 1h",
+		"weekdays: [sat]", "months: [jan]", "dates: [2027-01-09]"} {
+		code, _, errOut := runStdin(t, `sites:
+  - {id: finca-guira, latitude: 22.85, longitude: -82.5, timezone: America/Havana}
+feeds:
+  - id: guira-sun
+    site: finca-guira
+    kinds: [sunset, {kind: sunset, `+opt+`}]
+`, "check", "--config", "-")
+		if code != exitInput || !strings.Contains(errOut, `feeds[0].kinds[1]: sunset: "sunset" listed twice`) {
+			t.Errorf("%s: exit %d, want %d and \"sunset\" listed twice:\n%s", opt, code, exitInput, errOut)
+		}
 	}
 }
 

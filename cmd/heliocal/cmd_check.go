@@ -104,23 +104,24 @@ func horizonText(s checkSite) string {
 }
 
 type checkFeed struct {
-	ID        string   `json:"id"`
-	Site      string   `json:"site"`
-	Kinds     []string `json:"kinds"`
-	Plans     int      `json:"plans"`
-	DaysBack  int      `json:"days_back"`
-	DaysAhead int      `json:"days_ahead"`
-	Events    int      `json:"events"`
-	Bytes     int      `json:"bytes"`
-	Oversize  bool     `json:"oversize"` // over service.max_feed_bytes, the whole window
+	ID    string   `json:"id"`
+	Site  string   `json:"site"`
+	Kinds []string `json:"kinds"`
+	// KindsShown are the kinds entries as the text table and the warnings
+	// write them: with an entry's offset ("sunrise-30m"), so two sunrise
+	// entries read apart; Kinds keeps the kind names
+	KindsShown []string `json:"kinds_shown"`
+	Plans      int      `json:"plans"`
+	DaysBack   int      `json:"days_back"`
+	DaysAhead  int      `json:"days_ahead"`
+	Events     int      `json:"events"`
+	Bytes      int      `json:"bytes"`
+	Oversize   bool     `json:"oversize"` // over service.max_feed_bytes, the whole window
 	// TrimmedTo is the last date of a feed shortened to fit (oversize:
 	// trim); Events and Bytes are then the shortened feed's. Of a feed
 	// refused (Oversize without TrimmedTo, among the report's refused),
 	// Events are the whole window's and Bytes the size its refusal names.
 	TrimmedTo string `json:"trimmed_to,omitempty"`
-	// shown are the kinds as the text table writes them: with a kinds
-	// entry's offset ("sunrise-30m"), so two sunrise entries read apart
-	shown []string
 	// limit is service.max_feed_bytes, which the text table's size of an
 	// Oversize feed is told apart from, as its warning or note tells it
 	limit int
@@ -282,7 +283,7 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		r.Notes = append(r.Notes, later...)
 		// encoded as publish and serve encode it, under service.oversize:
 		// as it is, shortened, or refused
-		cf := checkFeed{ID: f.ID, Site: f.Site, Kinds: kinds, Plans: len(f.Plans), DaysBack: f.DaysBack, DaysAhead: f.DaysAhead, shown: shown, limit: limit}
+		cf := checkFeed{ID: f.ID, Site: f.Site, Kinds: kinds, KindsShown: shown, Plans: len(f.Plans), DaysBack: f.DaysBack, DaysAhead: f.DaysAhead, limit: limit}
 		whole := len(cal.Entries)
 		data, err := publish.Encode(cal, &opts)
 		cf.Events = len(cal.Entries) // as trim left them
@@ -335,7 +336,7 @@ func writeCheckText(g *globals, r *checkReport, zoneLines []string) error {
 	tw = tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	fmt.Fprintln(tw, "FEED\tSITE\tKINDS\tWINDOW\tEVENTS\tSIZE")
 	for _, f := range r.Feeds {
-		kinds := f.shown
+		kinds := f.KindsShown
 		switch f.Plans {
 		case 0:
 		case 1:

@@ -62,12 +62,15 @@ problem (exit code 2).` + exitStatusHelp,
 
 // checkReport is what check finds, for --format json.
 type checkReport struct {
-	Configuration string         `json:"configuration"` // file name, "standard input" or "built-in demo"
-	Valid         bool           `json:"valid"`
-	Problems      []checkProblem `json:"problems,omitempty"`
-	Sites         []checkSite    `json:"sites"`
-	Feeds         []checkFeed    `json:"feeds"`
-	Warnings      []string       `json:"warnings"`
+	Configuration string `json:"configuration"` // file name, "standard input" or "built-in demo"
+	Valid         bool   `json:"valid"`
+	// OutDir is service.out_dir as publish finds it: a relative directory
+	// joined to the working directory (resolvedOutDir)
+	OutDir   string         `json:"out_dir,omitempty"`
+	Problems []checkProblem `json:"problems,omitempty"`
+	Sites    []checkSite    `json:"sites"`
+	Feeds    []checkFeed    `json:"feeds"`
+	Warnings []string       `json:"warnings"`
 	// Notes are what check tells that needs no change: a listed date after
 	// a feed's window, published once the window reaches it; a feed that
 	// publish and serve shorten to fit max_feed_bytes (oversize: trim).
@@ -75,6 +78,9 @@ type checkReport struct {
 	// Refused are the feeds publish and serve refuse, over max_feed_bytes
 	// under oversize: fail (exit 1, as publish).
 	Refused []string `json:"refused,omitempty"`
+	// outDir is service.out_dir as written, which the text names beside
+	// OutDir when it is relative
+	outDir string
 }
 
 type checkProblem struct {
@@ -231,7 +237,8 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 	if err != nil {
 		return nil, nil, err
 	}
-	r := &checkReport{Configuration: src.String(), Valid: true, Sites: []checkSite{}, Feeds: []checkFeed{}, Warnings: []string{}, Notes: []string{}}
+	r := &checkReport{Configuration: src.String(), Valid: true, OutDir: resolvedOutDir(cfg.Service.OutDir), outDir: cfg.Service.OutDir,
+		Sites: []checkSite{}, Feeds: []checkFeed{}, Warnings: []string{}, Notes: []string{}}
 	for _, s := range cfg.Sites {
 		r.Sites = append(r.Sites, checkSite{ID: s.ID, sitePlace: placeOf(&s), SkylineFile: s.HorizonFile,
 			TimeZone: s.TimeZone.Name(), TimeZoneInferred: s.ZoneInferred})
@@ -318,7 +325,12 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 // error.
 func writeCheckText(g *globals, r *checkReport, zoneLines []string) error {
 	w := new(bytes.Buffer)
-	fmt.Fprintf(w, "configuration: %s (valid)\n\n", r.Configuration)
+	fmt.Fprintf(w, "configuration: %s (valid)\n", r.Configuration)
+	if r.OutDir != r.outDir {
+		fmt.Fprintf(w, "out_dir: %s (%s, relative to the working directory)\n\n", r.OutDir, r.outDir)
+	} else {
+		fmt.Fprintf(w, "out_dir: %s\n\n", r.OutDir)
+	}
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	fmt.Fprintln(tw, "SITE\tNAME\tLATITUDE\tLONGITUDE\tELEVATION\tHORIZON\tZONE")
 	for _, s := range r.Sites {

@@ -118,17 +118,25 @@ func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Tim
 		return err
 	}
 	w := &publish.Writer{Dir: out, LockWait: o.lockWait}
+	// The messages name the configuration's directory resolved, since a
+	// relative out_dir is read from the working directory, not the
+	// file's; --out as it was typed.
+	shown := out
+	if o.out == "" {
+		shown = resolvedOutDir(out)
+	}
 	if !o.quiet {
 		w.Waiting = func(lock string) {
-			fmt.Fprintf(g.stderr, "heliocal: another publish is writing to %s; waiting up to %v for its lock (%s)\n", out, o.lockWait, lock)
+			fmt.Fprintf(g.stderr, "heliocal: another publish is writing to %s; waiting up to %v for its lock (%s)\n", shown, o.lockWait, lock)
 		}
 	}
 	if !o.quiet {
 		for _, n := range zoneNotes(cfg, now) {
 			fmt.Fprintln(g.stderr, "heliocal: "+n)
 		}
-		fmt.Fprintf(g.stderr, "heliocal: publishing %s from %s to %s\n", publishingWhat(srcs, shard), src, out)
+		fmt.Fprintf(g.stderr, "heliocal: publishing %s from %s to %s\n", publishingWhat(srcs, shard), src, shown)
 		opts.Progress = publish.NewProgress(g.stderr)
+		opts.Progress.Dir = shown
 	}
 	st, err := publish.Publish(ctx, srcs, opts, w)
 	if err != nil {
@@ -143,6 +151,22 @@ func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Tim
 		fmt.Fprintln(g.stderr, "warning: "+w.text) // as check writes them
 	}
 	return nil
+}
+
+// resolvedOutDir is service.out_dir as publish finds it: a relative
+// directory is taken from the working directory (not the configuration
+// file's, from which a skyline file is read), so it is named joined to it.
+// A directory whose absolute form cannot be had (the working directory
+// removed) is named as written.
+func resolvedOutDir(dir string) string {
+	if filepath.IsAbs(dir) {
+		return dir
+	}
+	abs, err := filepath.Abs(dir)
+	if err != nil {
+		return dir
+	}
+	return abs
 }
 
 // checkOutDir refuses an output directory that cannot be one: out itself,

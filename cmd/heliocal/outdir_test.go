@@ -119,3 +119,66 @@ func TestPublishProcOutDir(t *testing.T) {
 		t.Errorf("exit %d, %q; want %d and a message starting %q, without the temporary file", code, errOut, exitFailure, want)
 	}
 }
+
+// A relative service.out_dir is read from the working directory, a
+// relative skyline file from the configuration file's directory, as
+// docs/configuration.md says: run from elsewhere, check finds the skyline
+// beside the file and names the output directory joined to the working
+// directory, and publish writes there and names it so.
+func TestOutDirFromWorkingDirectory(t *testing.T) {
+	confDir, work := t.TempDir(), t.TempDir()
+	if err := os.WriteFile(filepath.Join(confDir, "hills.csv"), []byte("azimuth,altitude\n0,2\n90,8\n180,1\n270,4\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	cfg := filepath.Join(confDir, "heliocal.yaml")
+	if err := os.WriteFile(cfg, []byte(`service:
+  out_dir: calendars
+sites:
+  - {id: finca-guira, latitude: 22.85, longitude: -82.5, timezone: America/Havana, horizon: hills.csv}
+feeds:
+  - {id: guira-sun, site: finca-guira, days_back: 0, days_ahead: 3, kinds: [sunrise]}
+`), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	t.Chdir(work)
+	out := filepath.Join(work, "calendars")
+
+	code, text, errOut := runCLI(t, "check", "--config", cfg)
+	if code != 0 {
+		t.Fatalf("check: exit %d: %s", code, errOut)
+	}
+	want := "out_dir: " + out + " (calendars, relative to the working directory)\n"
+	if !strings.Contains(text, want) || !strings.Contains(text, "skyline 1–8° (4 points, hills.csv)") {
+		t.Errorf("check:\n%s\nwant %q and the skyline of hills.csv", text, want)
+	}
+	// an absolute directory is named alone
+	if _, text, _ := runCLIEnv(t, map[string]string{"HELIOCAL_OUT_DIR": out}, "check", "--config", cfg); !strings.Contains(text, "\nout_dir: "+out+"\n\n") {
+		t.Errorf("check with HELIOCAL_OUT_DIR=%s:\n%s", out, text)
+	}
+	var r checkReport
+	runJSON(t, &r, "check", "--config", cfg, "--format", "json")
+	if r.OutDir != out || len(r.Sites) != 1 || r.Sites[0].SkylineFile != filepath.Join(confDir, "hills.csv") {
+		t.Errorf("check --format json: out_dir %q, sites %+v; want %q and the skyline file in %s", r.OutDir, r.Sites, out, confDir)
+	}
+
+	code, _, errOut = runCLI(t, "publish", "--config", cfg)
+	if code != 0 {
+		t.Fatalf("publish: exit %d: %s", code, errOut)
+	}
+	if _, err := os.Stat(filepath.Join(out, "guira-sun.ics")); err != nil {
+		t.Errorf("publish did not write into the working directory's calendars: %v", err)
+	}
+	if _, err := os.Stat(filepath.Join(confDir, "calendars")); !errors.Is(err, fs.ErrNotExist) {
+		t.Errorf("publish made a directory beside the configuration: %v", err)
+	}
+	for _, want := range []string{" to " + out + "\n", " to " + out + string(os.PathSeparator) + "\n"} {
+		if !strings.Contains(errOut, want) {
+			t.Errorf("publish:\n%s\nwant %q", errOut, want)
+		}
+	}
+	// --out is named as it was typed
+	code, _, errOut = runCLI(t, "publish", "--config", cfg, "--out", "elsewhere")
+	if code != 0 || !strings.Contains(errOut, " to elsewhere"+string(os.PathSeparator)+"\n") {
+		t.Errorf("publish --out elsewhere: exit %d:\n%s", code, errOut)
+	}
+}

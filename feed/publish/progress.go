@@ -18,6 +18,11 @@ import (
 // otherwise, and a summary line at the end either way. Its methods may be
 // called from any goroutine; a nil *Progress reports nothing.
 type Progress struct {
+	// Dir, when not empty, is the output directory as the summary names
+	// it, in place of the Writer's Dir (the same directory written another
+	// way: a relative one resolved).
+	Dir string
+
 	w   io.Writer
 	bar bool
 
@@ -105,6 +110,9 @@ func (p *Progress) Finish(st Stats, dir string) {
 	p.mu.Lock()
 	defer p.mu.Unlock()
 	p.clear()
+	if p.Dir != "" {
+		dir = p.Dir
+	}
 	fmt.Fprint(p.w, Summary(st, dir))
 }
 

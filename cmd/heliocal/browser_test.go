@@ -847,6 +847,63 @@ func TestBrowserPreviewClockChange(t *testing.T) {
 	}
 }
 
+// A time in the hour the clocks show twice carries its zone's label in the
+// builder's preview and on the table page (/at), so that it reads as one
+// pass: Havana's moonset of 7 November 2027 is at 05:48:24 UTC (PyEphem
+// 4.1.4, Debian python3-ephem: Observer at 23.11, -82.41, elevation 0,
+// pressure 0, horizon -0:34, Moon().next_setting from 2027/11/07 04:00,
+// the upper limb), 00:48 CST, in the second pass of 00:00–00:59 (the
+// clocks go back from 00:59:59 CDT to 00:00:00 CST, zdump, tz database).
+// At 390 px both fit the width.
+func TestBrowserRepeatedHour(t *testing.T) {
+	ts := builderServer(t)
+	ctx := browser(t)
+	const fits = `document.documentElement.scrollWidth <= window.innerWidth`
+	if err := chromedp.Do(ctx,
+		chromedp.EmulateViewport(390, 844),
+		chromedp.Navigate(ts.URL+"/"),
+		chromedp.WaitVisible(chromedp.ID("lat")),
+		chromedp.Click(chromedp.ID("k-moonset")),
+		chromedp.SendKeys(chromedp.ID("lat"), "23.11"),
+		chromedp.SendKeys(chromedp.ID("lon"), "-82.41"),
+		chromedp.SetValue(chromedp.ID("start"), "2027-11-06"),
+		chromedp.Evaluate[chromedp.Void](`document.getElementById("builder").dispatchEvent(new Event("input"))`),
+		chromedp.Poll[chromedp.Void](`(() => { const th = document.querySelector("#preview th"); return th && th.textContent.includes("2027-11-06"); })()`),
+	); err != nil {
+		t.Fatal(err)
+	}
+	row := `[...document.querySelectorAll("#preview tr")].find(tr => tr.querySelector("th").textContent.includes("2027-11-07"))`
+	got, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](`[...`+row+`.querySelectorAll("li[data-kind=moonset] .t")].map(t => t.textContent)`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(got) != 1 || got[0] != "00:48 CST" {
+		t.Errorf("the preview's moonset of 2027-11-07 at %q, want 00:48 CST", got)
+	}
+	if ok, err := chromedp.Run(ctx, chromedp.Evaluate[bool](fits)); err != nil || !ok {
+		t.Errorf("the builder at 390 px is wider than the screen (%v)", err)
+	}
+	shot(t, ctx, "repeated-hour-builder.png")
+
+	if err := chromedp.Do(ctx,
+		chromedp.Navigate(ts.URL+"/at?lat=23.11&lon=-82.41&tz=America/Havana&kinds=moonset&start=2027-11-07&days=1"),
+		chromedp.WaitVisible(chromedp.CSS("table.days")),
+	); err != nil {
+		t.Fatal(err)
+	}
+	got, err = chromedp.Run(ctx, chromedp.Evaluate[[]string](`[...document.querySelectorAll("table.days .t")].map(t => t.textContent)`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(got) != 1 || got[0] != "00:48 CST" {
+		t.Errorf("the table page's moonset of 2027-11-07 at %q, want 00:48 CST", got)
+	}
+	if ok, err := chromedp.Run(ctx, chromedp.Evaluate[bool](fits)); err != nil || !ok {
+		t.Errorf("the table page at 390 px is wider than the screen (%v)", err)
+	}
+	shot(t, ctx, "repeated-hour-table.png")
+}
+
 // Until a date is chosen, the builder previews from today at the place,
 // as the subscribed feed and the table page start, not from the server's
 // date, which the page came with and which is another date where the

@@ -113,3 +113,30 @@ func TestRowsSayTimesOnce(t *testing.T) {
 		t.Error(`no row "Lamps on for 16 h, to reach 16 h" in Tromsø's polar night`)
 	}
 }
+
+// A time in the hour the clocks show twice is written with its zone's
+// label on the table page (/at) and in the preview's /at.json, where its
+// time stays the clock alone: Havana's moonset of 7 November 2027 is at
+// 05:48:24 UTC (PyEphem 4.1.4, Debian python3-ephem: Observer at 23.11,
+// -82.41, elevation 0, pressure 0, horizon -0:34, Moon().next_setting from
+// 2027/11/07 04:00, the upper limb), 00:48 CST, the second pass of
+// 00:00–00:59 (the clocks go back from 00:59:59 CDT to 00:00:00 CST, zdump,
+// tz database).
+func TestRowsMarkRepeatedHour(t *testing.T) {
+	ts := builderServer(t)
+	q := "lat=23.11&lon=-82.41&tz=America/Havana&kinds=moonset&start=2027-11-07&days=1"
+	if page := getOK(t, ts.URL+"/at?"+q); !strings.Contains(page, `<span class="t">00:48 CST</span> Moonset`) {
+		t.Errorf("/at?%s: no moonset at 00:48 CST:\n%s", q, page)
+	}
+	var res struct {
+		Days []struct {
+			Entries []struct{ Kind, Time, When string }
+		}
+	}
+	if err := json.Unmarshal([]byte(getOK(t, ts.URL+"/at.json?"+q)), &res); err != nil {
+		t.Fatal(err)
+	}
+	if len(res.Days) != 1 || len(res.Days[0].Entries) != 1 || res.Days[0].Entries[0].When != "00:48 CST" || res.Days[0].Entries[0].Time != "00:48" {
+		t.Errorf("/at.json?%s: days %+v, want the moonset when 00:48 CST, time 00:48", q, res.Days)
+	}
+}

@@ -215,7 +215,9 @@ type previewEntry struct {
 	// date: a dark window after midnight belongs to the night before.
 	StartDate string `json:"start_date,omitempty"`
 	// When is Time and End as shown, each with its weekday when it falls
-	// on another date than the entry's: "23:55–Sun 06:25", "Mon 01:59–06:24".
+	// on another date than the entry's: "23:55–Sun 06:25", "Mon 01:59–06:24",
+	// and with its zone's label when it is in the hour the clocks show
+	// twice: "00:48 CDT", "00:12 CST" (clockOn).
 	When string `json:"when,omitempty"`
 	// Open marks a band's span not left before these days end (near a
 	// pole): it has no end, and When reads "from 02:24".
@@ -660,7 +662,7 @@ func days(cal *feed.Calendar, q AdhocQuery) []previewDay {
 					pe.EndDate = end.Format(time.DateOnly)
 					pe.When += "–" + clockOn(end, row)
 				} else {
-					pe.When += "–" + pe.End
+					pe.When += "–" + pe.End + twiceLabel(end)
 				}
 			}
 		}
@@ -730,12 +732,49 @@ func clockChange(d time.Time, loc *time.Location) string {
 }
 
 // clockOn writes the local time t as "15:04", led by its weekday ("Mon
-// 01:59") when it falls on another date than row (YYYY-MM-DD).
+// 01:59") when it falls on another date than row (YYYY-MM-DD), and
+// followed by its zone's label (feed.ZoneLabel, as the feeds' descriptions
+// write every time) when the clocks show its reading twice: "00:48 CDT",
+// the first pass, or "00:48 CST", the second (America/Havana, 7 November
+// 2027).
 func clockOn(t time.Time, row string) string {
 	if t.Format(time.DateOnly) != row {
-		return t.Format("Mon 15:04")
+		return t.Format("Mon 15:04") + twiceLabel(t)
 	}
-	return t.Format("15:04")
+	return t.Format("15:04") + twiceLabel(t)
+}
+
+// twiceLabel is what follows the local time t as clockOn writes it: its
+// zone's label after a space when the clocks show its reading twice
+// (shownTwice), else nothing.
+func twiceLabel(t time.Time) string {
+	if !shownTwice(t) {
+		return ""
+	}
+	abbr, _ := t.Zone()
+	return " " + feed.ZoneLabel(abbr)
+}
+
+// shownTwice says whether the clocks of t's zone show t's reading at
+// another instant too: t is in the hour (or the time) they show again when
+// they go back, before the change (its first pass) or after it (its
+// second).
+func shownTwice(t time.Time) bool {
+	start, end := t.ZoneBounds()
+	_, off := t.Zone()
+	if !end.IsZero() {
+		_, next := end.Zone()
+		if back := time.Duration(off-next) * time.Second; back > 0 && end.Sub(t) <= back {
+			return true
+		}
+	}
+	if !start.IsZero() {
+		_, prev := start.Add(-time.Second).Zone()
+		if back := time.Duration(prev-off) * time.Second; back > 0 && t.Sub(start) < back {
+			return true
+		}
+	}
+	return false
 }
 
 // qrDataURL draws text as a QR code (error correction M, 4-module quiet

@@ -434,3 +434,56 @@ func TestPagesGzipped(t *testing.T) {
 		}
 	}
 }
+
+// A time in the hour the clocks show twice, when they go back, is followed
+// by its zone's label in the preview and the table page, as the feeds'
+// descriptions write every time, so that its two passes read apart; the
+// other times, those around a change forward too, are shown alone. The
+// changes of 2027 as zdump (tz database) lists them: America/Havana from
+// 00:59:59 CDT on 7 November to 00:00:00 CST, and from 23:59:59 CST on
+// 13 March to 01:00:00 CDT on the 14th; America/Santiago from 23:59:59 -03
+// on 3 April to 23:00:00 -04; Australia/Lord_Howe from 01:59:59 +11 on
+// 4 April to 01:30:00 +1030.
+func TestPreviewRepeatedHour(t *testing.T) {
+	u := func(s string) time.Time { t, _ := time.Parse(time.RFC3339, s); return t }
+	for _, tc := range []struct {
+		zone, row   string
+		start, end  string // UTC; end "" for an instant
+		when, time_ string
+	}{
+		{"America/Havana", "2027-11-06", "2027-11-07T03:59:00Z", "", "23:59", "23:59"},
+		{"America/Havana", "2027-11-07", "2027-11-07T04:00:00Z", "", "00:00 CDT", "00:00"},
+		{"America/Havana", "2027-11-07", "2027-11-07T04:48:00Z", "", "00:48 CDT", "00:48"},
+		{"America/Havana", "2027-11-07", "2027-11-07T05:48:00Z", "", "00:48 CST", "00:48"},
+		{"America/Havana", "2027-11-07", "2027-11-07T06:00:00Z", "", "01:00", "01:00"},
+		{"America/Havana", "2027-11-07", "2027-11-07T04:30:00Z", "2027-11-07T05:20:00Z", "00:30 CDT–00:20 CST", "00:30"},
+		{"America/Havana", "2027-11-06", "2027-11-07T04:10:00Z", "2027-11-07T10:21:00Z", "Sun 00:10 CDT–05:21", "00:10"},
+		{"America/Havana", "2027-11-06", "2027-11-06T23:10:00Z", "2027-11-07T05:05:00Z", "19:10–Sun 00:05 CST", "19:10"},
+		{"America/Havana", "2027-03-14", "2027-03-14T05:00:00Z", "", "01:00", "01:00"},
+		{"America/Havana", "2027-03-13", "2027-03-14T04:59:00Z", "", "23:59", "23:59"},
+		{"America/Santiago", "2027-04-03", "2027-04-04T02:30:00Z", "", "23:30 UTC−03", "23:30"},
+		{"America/Santiago", "2027-04-03", "2027-04-04T03:30:00Z", "", "23:30 UTC−04", "23:30"},
+		{"America/Santiago", "2027-04-03", "2027-04-04T01:59:00Z", "", "22:59", "22:59"},
+		{"Australia/Lord_Howe", "2027-04-04", "2027-04-03T14:45:00Z", "", "01:45 UTC+11", "01:45"},
+		{"Australia/Lord_Howe", "2027-04-04", "2027-04-03T15:15:00Z", "", "01:45 UTC+10:30", "01:45"},
+		{"Australia/Lord_Howe", "2027-04-04", "2027-04-03T14:20:00Z", "", "01:20", "01:20"},
+		{"Australia/Lord_Howe", "2027-04-04", "2027-04-03T15:30:00Z", "", "02:00", "02:00"},
+	} {
+		loc, err := time.LoadLocation(tc.zone)
+		if err != nil {
+			t.Fatal(err)
+		}
+		row, _ := time.Parse(time.DateOnly, tc.row)
+		e := feed.Entry{Kind: "moonset", Title: "Moonset", Date: row, Start: u(tc.start)}
+		if tc.end != "" {
+			e.Kind, e.Title, e.End = "dark-window", "Dark sky", u(tc.end)
+		}
+		got := days(&feed.Calendar{Entries: []feed.Entry{e}}, AdhocQuery{Start: row, Days: 1, Location: loc})
+		if len(got[0].Entries) != 1 {
+			t.Fatalf("%s %s: entries %+v", tc.zone, tc.start, got[0].Entries)
+		}
+		if pe := got[0].Entries[0]; pe.When != tc.when || pe.Time != tc.time_ {
+			t.Errorf("%s, %s: when %q, time %q; want %q, %q", tc.zone, tc.start, pe.When, pe.Time, tc.when, tc.time_)
+		}
+	}
+}

@@ -24,8 +24,9 @@ func newCheckCommand(g *globals) *cobra.Command {
 		Use:   "check",
 		Short: "Validate the configuration and summarise its sites and feeds",
 		Long: `Validate the configuration (every problem is listed, each with its field and value) and,
-when it is valid, build every feed once and print the sites, the feeds, their event counts
-and sizes. A feed larger than service.max_feed_bytes is reported as publish and serve treat
+when it is valid, build every feed once and print the directory publish writes to (a
+relative service.out_dir is read from the working directory, not the file's, and is shown
+joined to it), the sites, the feeds, their event counts and sizes. A feed larger than service.max_feed_bytes is reported as publish and serve treat
 it under service.oversize: warn publishes it as it is, with a warning (some widely used web
 calendars are reported to drop events from subscriptions over about 1 MB); trim shortens it,
 with publish's note and the shortened feed's size in the table; fail refuses it: check then

@@ -1077,17 +1077,19 @@ func movedClock(ts config.TimeSpec, t time.Time, z *zoneCache) (clockMove, bool)
 // when its date is said beside it (not dated), "moved from 00:30, which the
 // clocks skip: they go forward for summer time by 1 h".
 func (m clockMove) words(dated bool) string {
-	change := clocksGo(true, m.t.IsDST(), m.by)
+	change := ClocksGo(true, m.t.IsDST(), m.by)
 	if !dated {
 		return "moved from " + clockText(m.written) + ", which the clocks skip: they " + change
 	}
 	return "moved from " + clockText(m.written) + ", which the clocks skip on " + m.t.Format("Mon 2 Jan 2006") + ": the clocks " + change
 }
 
-// clocksGo says how the clocks change, by how much: "go forward for summer
+// ClocksGo says how the clocks change, by how much: "go forward for summer
 // time by 1 h" when forward into summer time, "go back from summer time by
-// 1 h" when back out of it, "go forward by 30 min" for another change.
-func clocksGo(forward, summer bool, by time.Duration) string {
+// 1 h" when back out of it, "go forward by 30 min" for another change. A
+// plan's note of the clocks and the served day-by-day table's line of a
+// date the clocks change on say it in these words.
+func ClocksGo(forward, summer bool, by time.Duration) string {
 	how, season := "back", " from summer time"
 	if forward {
 		how, season = "forward", " for summer time"
@@ -1153,7 +1155,7 @@ func goBack(start, end time.Time, z *zoneCache) (words string, across bool) {
 	}
 	summer := start.In(z.loc).IsDST() && !change.In(z.loc).IsDST()
 	at := change.In(time.FixedZone(label, int(off))) // the clock before the change
-	return " (on " + at.Format("Mon 2 Jan 2006") + " at " + at.Format("15:04 ") + label + " the clocks " + clocksGo(false, summer, by) + ")", across
+	return " (on " + at.Format("Mon 2 Jan 2006") + " at " + at.Format("15:04 ") + label + " the clocks " + ClocksGo(false, summer, by) + ")", across
 }
 
 // appendMoved appends what follows a plan's time shown: " the next day (Sun

@@ -716,17 +716,12 @@ func clockChange(d time.Time, loc *time.Location) string {
 		if was == "00:00" && old.Format(time.DateOnly) != row {
 			was = "24:00"
 		}
-		how := "forward"
-		by := time.Duration(after-before) * time.Second
-		switch {
-		case by < 0 && tr.Add(-time.Second).In(loc).IsDST():
-			how, by = "back from summer time", -by
-		case by < 0:
-			how, by = "back", -by
-		case tr.In(loc).IsDST():
-			how = "forward for summer time"
+		// summer time is the clock's after a change forward, before one back
+		by, forward, summer := time.Duration(after-before)*time.Second, after > before, tr.In(loc).IsDST()
+		if !forward {
+			by, summer = -by, tr.Add(-time.Second).In(loc).IsDST()
 		}
-		said = append(said, fmt.Sprintf("Clocks go %s by %s: %s becomes %s", how, feed.Amount(by), was, tr.In(loc).Format("15:04")))
+		said = append(said, "Clocks "+feed.ClocksGo(forward, summer, by)+": "+was+" becomes "+tr.In(loc).Format("15:04"))
 	}
 	return strings.Join(said, "; ")
 }

@@ -153,23 +153,8 @@ func builderRoute(p string) (string, bool) {
 
 func (s *Server) serveBuilder(w http.ResponseWriter, r *http.Request, route, p string) {
 	if a := staticAssets()[p]; a != nil {
-		h := w.Header()
-		h["Content-Type"] = a.contentType
-		h["Cache-Control"] = hdrNoCache
 		// compressed once, as a feed is, with an ETag of its own
-		body, etag := a.data, a.etag
-		if a.gz != nil {
-			h["Vary"] = hdrVary
-			if acceptsGzip(r.Header.Get("Accept-Encoding")) {
-				body, etag, h["Content-Encoding"] = a.gz, a.gzETag, hdrGzip
-			}
-		}
-		h["Etag"] = etag
-		if unconditional(r) { // with its Content-Length, gzip form or not
-			writeWhole(w, r, nil, bytes.NewReader(body))
-			return
-		}
-		http.ServeContent(w, r, "", time.Time{}, bytes.NewReader(body))
+		writeAsset(w, r, a, hdrNoCache)
 		return
 	}
 	if s.opts.Preview == nil {

@@ -204,9 +204,15 @@ func (s *Server) serveBundleFile(w http.ResponseWriter, r *http.Request, name st
 // conditional requests (If-None-Match against the ETag set here,
 // If-Modified-Since against modTime), HEAD and Range.
 func (s *Server) serveAsset(w http.ResponseWriter, r *http.Request, a *asset) {
+	writeAsset(w, r, a, *s.cacheControl.Load())
+}
+
+// writeAsset is serveAsset with the Cache-Control cacheControl: the feeds'
+// (from the refresh interval), or the page's own files' no-cache.
+func writeAsset(w http.ResponseWriter, r *http.Request, a *asset, cacheControl []string) {
 	h := w.Header()
 	h["Content-Type"] = a.contentType
-	h["Cache-Control"] = *s.cacheControl.Load()
+	h["Cache-Control"] = cacheControl
 	if a.cors {
 		h["Access-Control-Allow-Origin"] = hdrCORS
 	}

@@ -79,8 +79,9 @@ func trueLunarApsisJDE(jde0 float64, perigee bool) (jde, dist float64) {
 
 // LunarApsides returns the Moon's perigees and apogees with from ≤ Time < to,
 // sorted, alternating: ELP/MPP02 distance extrema started from the mean
-// apsides of Meeus ch. 50. It returns a *RangeError
-// outside MinTime..MaxTime and an error matching ErrInvalidInput when to is before from.
+// apsides of Meeus ch. 50. It returns a *RangeError outside
+// MinTime..MaxTime and an error matching ErrInvalidInput when to is before
+// from.
 func LunarApsides(from, to time.Time) ([]LunarApsis, error) {
 	if err := checkTime("lunar apsides from", from); err != nil {
 		return nil, err

@@ -119,9 +119,9 @@ func (s moonState) position() MoonPosition {
 
 // Moon returns the apparent geocentric position of the Moon at the UTC
 // instant t: ELP/MPP02 (fitted to DE405) with light time, IAU 1980 nutation
-// and the true obliquity, as described in moon.go: within 0.13″ of DE431
-// over 1800–2199 (measured). It returns a *RangeError
-// (matching ErrOutOfRange) outside MinTime..MaxTime.
+// and the true obliquity: within 0.13″ of DE431 over 1800–2199 (measured).
+// It returns a *RangeError (matching ErrOutOfRange) outside
+// MinTime..MaxTime.
 func Moon(t time.Time) (MoonPosition, error) {
 	e, err := NewEpoch(t)
 	if err != nil {
@@ -175,7 +175,7 @@ func illumination(ra, dec, dist, ra0, dec0, r0, elong float64) Illumination {
 
 // MoonIllumination returns the Moon's illuminated fraction, phase angle,
 // elongation, position angle of the bright limb and whether it is waxing,
-// at the UTC instant t, from the apparent positions of moon.go and sun.go
+// at the UTC instant t, from the apparent positions Moon and Sun give
 // (Meeus ch. 48, the rigorous eqs. 48.2–48.3, not the approximate 48.4). It
 // returns a *RangeError outside MinTime..MaxTime.
 func MoonIllumination(t time.Time) (Illumination, error) {

@@ -144,10 +144,11 @@ func truePhaseJDE(jde0, target float64) float64 {
 // MoonPhases returns the principal phases of the Moon (new moon, first
 // quarter, full moon, last quarter) with from ≤ Time < to, sorted by time,
 // in UTC. Each instant is the apparent geocentric elongation in longitude
-// of 0°, 90°, 180° or 270°, solved on ELP/MPP02 and VSOP87D positions (see
-// phases.go); measured within a few seconds of the almanac-office instants.
-// It returns a *RangeError (matching ErrOutOfRange) when from or to is
-// outside MinTime..MaxTime, and an error matching ErrInvalidInput when to is before from.
+// of 0°, 90°, 180° or 270°, solved on ELP/MPP02 and VSOP87D positions;
+// measured within a few seconds of the almanac-office instants. It returns
+// a *RangeError (matching ErrOutOfRange) when from or to is outside
+// MinTime..MaxTime, and an error matching ErrInvalidInput when to is before
+// from.
 func MoonPhases(from, to time.Time) ([]Phase, error) {
 	if err := checkTime("moon phases from", from); err != nil {
 		return nil, err

@@ -236,7 +236,7 @@ const moonSDLow, moonSDHigh = 14.0 / 60, 18.0 / 60
 
 // MoonSkylineCrossings is SunSkylineCrossings for the Moon: every instant
 // in [from, to) at which the upper limb of the topocentric Moon (its
-// semidiameter as at the top of moonrise.go) meets the skyline, with the
+// semidiameter at its distance from the site) meets the skyline, with the
 // refraction of the skyline's altitude in the Moon's direction (Rising: it
 // appears; Setting: it disappears), sorted. A skyline at one altitude
 // everywhere gives exactly MoonRiseSet with that Horizon.

@@ -71,9 +71,15 @@ var (
 // widened by RangeMargin.
 func checkTime(what string, t time.Time) error {
 	if t.Before(MinTime.Add(-RangeMargin)) || !t.Before(MaxTime.Add(RangeMargin)) {
-		return &RangeError{What: what, Value: t.UTC().Format(time.RFC3339), Min: "1800-01-01", Max: "2200-12-31"}
+		return outOfRange(what, t.UTC().Format(time.RFC3339))
 	}
 	return nil
+}
+
+// outOfRange is the *RangeError of the input what, written value, outside
+// the supported dates.
+func outOfRange(what, value string) *RangeError {
+	return &RangeError{What: what, Value: value, Min: "1800-01-01", Max: "2200-12-31"}
 }
 
 // checkYear returns a *RangeError when year is outside 1799..2201: the
@@ -335,7 +341,7 @@ func TimeFromJulianEphemerisDay(jde float64) (time.Time, error) {
 	// is out of range whatever it is; checking it here keeps a huge value
 	// from wrapping round in the conversion to a time.Time.
 	if jde < JulianDay(MinTime.Add(-RangeMargin))-1 || jde > JulianDay(MaxTime.Add(RangeMargin))+1 {
-		return time.Time{}, &RangeError{What: "Julian Ephemeris Day", Value: strconv.FormatFloat(jde, 'f', -1, 64), Min: "1800-01-01", Max: "2200-12-31"}
+		return time.Time{}, outOfRange("Julian Ephemeris Day", strconv.FormatFloat(jde, 'f', -1, 64))
 	}
 	sec := ttToUnix(jde)
 	t := timeFromUnix(sec)

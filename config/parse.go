@@ -1498,9 +1498,7 @@ var byteUnits = map[string]float64{"b": 1, "bytes": 1, "kb": 1e3, "mb": 1e6}
 // The flags and the ad-hoc feeds' parameters that give the same numbers
 // (--lat, lat) take their hints from here too.
 func NumberTextHint(key, x string) string {
-	n := len(x) - len(strings.TrimLeft(x, "+-.0123456789"))
-	num, unit := x[:n], strings.ToLower(strings.TrimSpace(x[n:]))
-	f, err := strconv.ParseFloat(num, 64)
+	num, unit, f, err := numberAndUnit(x)
 	switch {
 	case key == "latitude":
 		return "write " + LatitudeText
@@ -1527,6 +1525,16 @@ func NumberTextHint(key, x string) string {
 		return "write a number of days, e.g. 365 for a year" // "1y"
 	}
 	return numberWords[key]
+}
+
+// numberAndUnit splits x, a number written with a unit ("120m", "30 %"),
+// into the number as written, num, and its unit in lower case, and reads
+// the number, f (err when x does not start with one).
+func numberAndUnit(x string) (num, unit string, f float64, err error) {
+	n := len(x) - len(strings.TrimLeft(x, "+-.0123456789"))
+	num, unit = x[:n], strings.ToLower(strings.TrimSpace(x[n:]))
+	f, err = strconv.ParseFloat(num, 64)
+	return num, unit, f, err
 }
 
 // LatitudeText and LongitudeText say how a latitude and a longitude are
@@ -1558,10 +1566,7 @@ const IlluminationText = "the Moon's illuminated fraction, e.g. 0.25 for a quart
 // percentage ("30", "30%", "30 %"), the fraction it means, "write a
 // fraction of 1: 0.3 for 30 %"; for anything else, IlluminationText.
 func IlluminationHint(x string) string {
-	x = strings.TrimSpace(x)
-	n := len(x) - len(strings.TrimLeft(x, "+-.0123456789"))
-	num, unit := x[:n], strings.TrimSpace(x[n:])
-	f, err := strconv.ParseFloat(num, 64)
+	num, unit, f, err := numberAndUnit(strings.TrimSpace(x))
 	// 30 is no fraction of 1, and taken for a percentage as 30 % is
 	percent := err == nil && (unit == "%" && f >= 0 && f <= 100 || unit == "" && f > 1 && f <= 100)
 	if !percent {

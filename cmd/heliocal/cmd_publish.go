@@ -195,9 +195,10 @@ func checkOutDir(field, out string) error {
 // outDirFailed words err, a failed publish into out (given by field: --out
 // or service.out_dir), when the directory cannot be written: one the user may
 // not write to or create, one on a read-only file system, or one in which
-// nothing can be created (/proc/1, for the superuser too), is named with the flag or key that gave it
-// and a hint, not by the temporary file or lock file the publish tried first
-// ("open public/.farm-sun.ics.tmp-81…: permission denied"). What the publish says of the files it left (the writer keeps
+// nothing can be created (/proc/1, for the superuser too), is named with the
+// flag or key that gave it and a hint, not by the temporary file or lock file
+// the publish tried first ("open public/.farm-sun.ics.tmp-81…: permission
+// denied"). What the publish says of the files it left (the writer keeps
 // nothing half-written: "nothing was changed: …") follows. It stays a
 // run-time failure (exit 1): out was checked to be a directory, or to be one
 // that can be created, before (checkOutDir). Other errors are returned as

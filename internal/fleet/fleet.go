@@ -22,6 +22,23 @@ var regions = []struct {
 	{-1.3, 36.8, "Africa/Nairobi"},
 }
 
+// jitterRounds is how many sites of a region step away from its point
+// before the steps start again, a little shifted: 400 steps of 0.017° keep
+// every site within 6.8° of its region's point (Auckland's 173° E stays
+// below 180°, Oslo's 59.9° N below 67°), whatever the size of the fleet.
+const jitterRounds = 400
+
+// place returns the latitude and longitude (degrees) and the zone of site i:
+// its region's point, moved 0.017° north and east for each earlier site of
+// the region, the steps starting again after jitterRounds of them, each
+// round 0.0011° further than the one before so that no two sites coincide.
+func place(i int) (lat, lon float64, zone string) {
+	r := regions[i%len(regions)]
+	k := i / len(regions)
+	j := float64(k%jitterRounds)*0.017 + float64(k/jitterRounds)*0.0011
+	return r.lat + j, r.lon + j, r.zone
+}
+
 // YAML returns the configuration of n sites, each with one feed of the
 // daily kinds (sunrise, sunset, civil dawn and dusk, golden hour) over 400
 // days (30 back, 369 ahead).
@@ -29,10 +46,9 @@ func YAML(n int) string {
 	var b strings.Builder
 	b.WriteString("sites:\n")
 	for i := range n {
-		r := regions[i%len(regions)]
-		j := float64(i/len(regions)) * 0.017
+		lat, lon, zone := place(i)
 		fmt.Fprintf(&b, "  - {id: site-%04d, name: Fleet site %d, latitude: %.4f, longitude: %.4f, elevation: %d, timezone: %s}\n",
-			i, i, r.lat+j, r.lon+j, 10*(i%50), r.zone)
+			i, i, lat, lon, 10*(i%50), zone)
 	}
 	b.WriteString("feeds:\n")
 	for i := range n {

@@ -1,6 +1,7 @@
 package fleet
 
 import (
+	"fmt"
 	"strings"
 	"testing"
 
@@ -20,5 +21,38 @@ func TestYAMLIsAValidConfiguration(t *testing.T) {
 	}
 	if got := cfg.Sites[n-1].ID; got != "site-0024" {
 		t.Errorf("last site %q, want site-0024", got)
+	}
+}
+
+// A fleet of 5,000 sites, the size an operator tries first beyond the
+// benchmark's, is a valid configuration too: its sites past the 4,120th
+// once had longitudes over 180° and the whole file was refused.
+func TestYAMLLargeFleetIsValid(t *testing.T) {
+	const n = 5000
+	cfg, err := config.Parse(strings.NewReader(YAML(n)), "yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(cfg.Sites) != n {
+		t.Fatalf("%d sites, want %d", len(cfg.Sites), n)
+	}
+}
+
+// Every site tools/fleet can write (it takes up to 100,000) has a latitude
+// and a longitude in range, and no two sites stand on the same point as
+// the configuration writes it (four decimals).
+func TestPlaceInRangeAndDistinct(t *testing.T) {
+	const most = 100000
+	seen := make(map[string]int, most)
+	for i := range most {
+		lat, lon, _ := place(i)
+		if lat < -90 || lat > 90 || lon < -180 || lon > 180 {
+			t.Fatalf("site %d at latitude %.4f, longitude %.4f: out of range", i, lat, lon)
+		}
+		key := fmt.Sprintf("%.4f %.4f", lat, lon)
+		if j, ok := seen[key]; ok {
+			t.Fatalf("sites %d and %d both at %s", j, i, key)
+		}
+		seen[key] = i
 	}
 }

@@ -171,12 +171,19 @@ func resolvedOutDir(dir string) string {
 
 // checkOutDir refuses an output directory that cannot be one: out itself,
 // or the nearest of its parents that exists, is not a directory ("--out
-// farm.yaml/sub" as well as "--out farm.yaml"). Any other failure (a
+// farm.yaml/sub" as well as "--out farm.yaml"), or is a symbolic link that
+// leads nowhere (its target removed, or a loop): publish would neither
+// follow it nor make a directory in its place. Any other failure (a
 // directory that cannot be read or written) is left to the publish, as a
 // run-time failure.
 func checkOutDir(field, out string) error {
 	for p := filepath.Clean(out); ; p = filepath.Dir(p) {
 		fi, err := os.Stat(p)
+		if err != nil {
+			if li, lerr := os.Lstat(p); lerr == nil && li.Mode()&fs.ModeSymlink != 0 {
+				return brokenLink(field, out, p, err)
+			}
+		}
 		if err == nil {
 			if fi.IsDir() {
 				return nil
@@ -190,6 +197,29 @@ func checkOutDir(field, out string) error {
 			return nil
 		}
 	}
+}
+
+// brokenLink words the refusal of out (given by field) because p, out or a
+// directory above it, is a symbolic link that cannot be followed: statErr
+// is what following it gave.
+func brokenLink(field, out, p string, statErr error) error {
+	target, err := os.Readlink(p)
+	if err != nil {
+		target = "?"
+	}
+	what := "a symbolic link"
+	if p != filepath.Clean(out) {
+		what = p + " is a symbolic link"
+	}
+	why := "which does not exist (create it, or give another directory)"
+	if !errors.Is(statErr, fs.ErrNotExist) {
+		var pe *fs.PathError
+		if errors.As(statErr, &pe) {
+			statErr = pe.Err
+		}
+		why = fmt.Sprintf("which cannot be followed (%v; give another directory)", statErr)
+	}
+	return badInput("%s: %q: %s to %q, %s", field, out, what, target, why)
 }
 
 // outDirFailed words err, a failed publish into out (given by field: --out

@@ -182,3 +182,49 @@ feeds:
 		t.Errorf("publish --out elsewhere: exit %d:\n%s", code, errOut)
 	}
 }
+
+// An output directory that is a symbolic link leading nowhere (its target
+// removed, as after moving the web root, or a loop), or that lies under
+// one, is refused as bad input naming the flag, the link and its target,
+// before anything is computed; nothing is created at the target. A link to
+// a directory is followed as any directory is.
+func TestPublishOutDirBrokenLink(t *testing.T) {
+	dir := t.TempDir()
+	gone := filepath.Join(dir, "moved-away")
+	dangling := filepath.Join(dir, "feeds")
+	loop1, loop2 := filepath.Join(dir, "loop1"), filepath.Join(dir, "loop2")
+	for _, l := range [][2]string{{gone, dangling}, {loop2, loop1}, {loop1, loop2}} {
+		if err := os.Symlink(l[0], l[1]); err != nil {
+			t.Skipf("no symbolic links here: %v", err)
+		}
+	}
+	for _, tc := range []struct{ out, want string }{
+		{dangling, fmt.Sprintf(`heliocal: --out: %q: a symbolic link to %q, which does not exist (create it, or give another directory)`, dangling, gone)},
+		{filepath.Join(dangling, "sky"), fmt.Sprintf(`heliocal: --out: %q: %s is a symbolic link to %q, which does not exist (create it, or give another directory)`,
+			filepath.Join(dangling, "sky"), dangling, gone)},
+		{loop1, fmt.Sprintf(`heliocal: --out: %q: a symbolic link to %q, which cannot be followed (too many levels of symbolic links; give another directory)`, loop1, loop2)},
+	} {
+		code, _, errOut := runCLI(t, "publish", "--quiet", "--out", tc.out)
+		if code != exitInput || errOut != tc.want+"\n" {
+			t.Errorf("exit %d, %q\nwant %d, %q", code, errOut, exitInput, tc.want)
+		}
+	}
+	if _, err := os.Lstat(gone); !errors.Is(err, fs.ErrNotExist) {
+		t.Errorf("the link's target was created: %v", err)
+	}
+	// a link to a directory is a directory
+	real := filepath.Join(dir, "real")
+	if err := os.Mkdir(real, 0o755); err != nil {
+		t.Fatal(err)
+	}
+	link := filepath.Join(dir, "public")
+	if err := os.Symlink(real, link); err != nil {
+		t.Fatal(err)
+	}
+	if code, _, errOut := runCLI(t, "publish", "--quiet", "--out", link); code != 0 {
+		t.Fatalf("publish into a link to a directory: exit %d: %s", code, errOut)
+	}
+	if _, err := os.Stat(filepath.Join(real, "feeds.json")); err != nil {
+		t.Errorf("nothing published through the link: %v", err)
+	}
+}

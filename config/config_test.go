@@ -219,6 +219,8 @@ func TestValidationErrors(t *testing.T) {
 		{"duplicate-feed-id.yaml", "feeds[1].id", "north-sun", "duplicate feed id, also that of feeds[0]", "", 0},
 		{"bad-site-id.yaml", "sites[0].id", "North Field", "must match [a-z0-9][a-z0-9-]*", `"north-field"`, 0},
 		{"bad-feed-id.yaml", "feeds[0].id", "north_sun", "must match [a-z0-9][a-z0-9-]*", `"north-sun"`, 0},
+		// nul.ics is the device NUL on Windows
+		{"bad-feed-id-device.yaml", "feeds[0].id", "nul", "is a device name on Windows, with any extension: nul.ics cannot be created there, nor synced to a Windows computer", `e.g. "nul-feed"`, 0},
 		{"missing-site.yaml", "feeds[0].site", "north-feild", "no site has this id", `did you mean "north-field"?`, 0},
 		{"no-sites.yaml", "sites", "", "no sites", "", 2},
 		{"no-kinds.yaml", "feeds[0].kinds", "", "no kinds", "", 0},
@@ -908,6 +910,25 @@ func TestLineAt(t *testing.T) {
 			if ok != wantOK || !bytes.Equal(got, want) {
 				t.Errorf("lineAt(%q, %d) = %q, %v; want %q, %v", data, row, got, ok, want, wantOK)
 			}
+		}
+	}
+}
+
+// Feed ids that name a device on Windows are refused, and only those. The
+// names are Microsoft's, "Naming Files, Paths, and Namespaces" (Win32 file
+// naming conventions): CON, PRN, AUX, NUL, COM1-COM9 and LPT1-LPT9, "also
+// avoid these names followed immediately by an extension"; Go's
+// internal/filepathlite (isReservedBaseName, path_windows.go) keeps the
+// same list. Ids are lower case, Windows' names are not case-sensitive.
+func TestWindowsDeviceIDs(t *testing.T) {
+	for _, id := range []string{"con", "prn", "aux", "nul", "com1", "com9", "lpt1", "lpt9"} {
+		if !windowsDevice(id) {
+			t.Errorf("%s: not taken for a device", id)
+		}
+	}
+	for _, id := range []string{"com", "com0", "com10", "lpt0", "lpt", "nul-sun", "console", "aux1", "null", "con-1", "north-sun"} {
+		if windowsDevice(id) {
+			t.Errorf("%s: taken for a device", id)
 		}
 	}
 }

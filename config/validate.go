@@ -443,6 +443,18 @@ func checkCronFires(expr string, now time.Time) string {
 	return ""
 }
 
+// windowsDevice reports whether id, an id of idPattern, is a name Windows
+// keeps for a device whatever extension follows it (nul.ics is NUL): con,
+// prn, aux, nul, com1..com9 and lpt1..lpt9. A feed's id names its file, and
+// published directories are synced to and served from Windows too.
+func windowsDevice(id string) bool {
+	switch id {
+	case "con", "prn", "aux", "nul":
+		return true
+	}
+	return len(id) == 4 && (id[:3] == "com" || id[:3] == "lpt") && id[3] >= '1' && id[3] <= '9'
+}
+
 // validID reports whether checkID accepts id.
 func validID(id string) bool {
 	return id != "" && len(id) <= MaxIDLength && idPattern().MatchString(id)
@@ -552,6 +564,10 @@ const msgZoneNotSet = "is not set"
 
 func (f *Feed) validate(ps *problems, p string) {
 	checkID(ps, p+".id", f.ID, "feed")
+	if windowsDevice(f.ID) {
+		ps.add(p+".id", f.ID, fmt.Sprintf("is a device name on Windows, with any extension: %s.ics cannot be created there, nor synced to a Windows computer", f.ID),
+			fmt.Sprintf("feed ids name the published files; e.g. %q", f.ID+"-feed"))
+	}
 	checkText(ps, p+".title", f.Title, false, MaxTextLength)
 	checkText(ps, p+".description", f.Description, true, 4000)
 	if len(f.Kinds) == 0 && len(f.Plans) == 0 {

@@ -34,6 +34,29 @@ func dirString(d astro.Direction) string {
 // site-local clock time with the zone's label: LocalClock, "06:47:12 CET".
 func localClock(t time.Time, loc *time.Location) string { return LocalClock(ToSecond(t), loc, true) }
 
+// ShownTwice reports whether the clocks of t's zone (t.Location()) show
+// t's reading at another instant too: t is in the hour (or the time) they
+// show again when they go back, before the change (its first pass) or after
+// it (its second). The iCalendar writer writes such a time in UTC, and the
+// served tables write its zone's label beside it.
+func ShownTwice(t time.Time) bool {
+	start, end := t.ZoneBounds()
+	_, off := t.Zone()
+	if !end.IsZero() {
+		_, next := end.Zone()
+		if back := time.Duration(off-next) * time.Second; back > 0 && end.Sub(t) <= back {
+			return true
+		}
+	}
+	if !start.IsZero() {
+		_, prev := start.Add(-time.Second).Zone()
+		if back := time.Duration(prev-off) * time.Second; back > 0 && t.Sub(start) < back {
+			return true
+		}
+	}
+	return false
+}
+
 // ZoneLabel is how the texts name a zone at an instant: its abbreviation
 // ("CET", "EDT"), or, where the time zone database has none and gives the
 // offset instead ("-03", "+0530"), that offset from UTC with a true minus

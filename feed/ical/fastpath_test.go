@@ -8,12 +8,14 @@ import (
 	"testing"
 	"time"
 
+	"heliocal/feed"
+
 	ics "github.com/arran4/golang-ical"
 )
 
 // TestOffsetAtMatchesZone: the cached offset period gives, for every quarter
 // hour of two years walked forwards and for instants in random order, the
-// offset of Go's time zone database and the answer of isAmbiguous, including
+// offset of Go's time zone database and the answer of feed.ShownTwice, including
 // around each clock change (zones with DST north and south, a half-hour and a
 // 30-minute-DST zone, negative DST, no DST, and a fixed zone).
 func TestOffsetAtMatchesZone(t *testing.T) {
@@ -29,7 +31,7 @@ func TestOffsetAtMatchesZone(t *testing.T) {
 		if _, want := at.In(w.loc).Zone(); off != int64(want) {
 			t.Fatalf("%s %s: offset %d, want %d", w.loc, at, off, want)
 		}
-		if want := isAmbiguous(at, w.loc); amb != want {
+		if want := feed.ShownTwice(at.In(w.loc)); amb != want {
 			t.Fatalf("%s %s: ambiguous %v, want %v", w.loc, at, amb, want)
 		}
 	}

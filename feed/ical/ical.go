@@ -767,8 +767,9 @@ func (w *writer) categoriesLineByValue(cats []string) *contentLine {
 // whole seconds) and reports whether it is local time. In local mode the
 // value is the site's wall clock, to be written with TZID; the library's
 // SetStartAt cannot be used, since it writes UTC with a trailing "Z" even
-// with a TZID. A wall clock that occurs twice is written in UTC (see
-// isAmbiguous).
+// with a TZID. A wall clock that occurs twice (feed.ShownTwice) is written
+// in UTC: RFC 5545 §3.3.5 reads such a local time as the first occurrence,
+// but parsers differ (Go's time.Date, and so go-ical, picks the second one).
 func (w *writer) appendTime(b []byte, t time.Time) ([]byte, bool) {
 	u := t.Unix()
 	if w.loc == nil {
@@ -847,7 +848,7 @@ const (
 
 // offsetSpan is one period [from, to) (Unix seconds) over which a zone keeps
 // the UTC offset off (seconds). Instants before ambBefore or from ambFrom on
-// have a wall clock that repeats (see isAmbiguous). Unbounded ends are
+// have a wall clock that repeats (see feed.ShownTwice). Unbounded ends are
 // math.MinInt64 and math.MaxInt64.
 type offsetSpan struct {
 	from, to           int64
@@ -856,10 +857,10 @@ type offsetSpan struct {
 }
 
 // offsetAt returns the offset of w.loc at t (whole seconds) and whether the
-// wall clock of t is ambiguous, with the same result as isAmbiguous. Entries
-// come mostly in time order and a zone changes offset at most a few times a
-// year, so the period found for the previous entry nearly always holds the
-// next one as well: only then are the zone's transitions looked up.
+// wall clock of t is ambiguous, with the same result as feed.ShownTwice.
+// Entries come mostly in time order and a zone changes offset at most a few
+// times a year, so the period found for the previous entry nearly always
+// holds the next one as well: only then are the zone's transitions looked up.
 func (w *writer) offsetAt(t time.Time) (int64, bool) {
 	u := t.Unix()
 	if u < w.span.from || u >= w.span.to {
@@ -869,9 +870,9 @@ func (w *writer) offsetAt(t time.Time) (int64, bool) {
 }
 
 // zoneSpanAt returns the offset period of loc that holds t. Its ambiguous
-// ranges restate isAmbiguous's two tests in Unix seconds:
-// t + (off-prev) < start  ⇔  t < start + (prev-off), and
-// t + (off-next) >= end   ⇔  t >= end - (off-next).
+// ranges restate feed.ShownTwice's two tests in Unix seconds:
+// t - start < prev-off  ⇔  t < start + (prev-off), and
+// end - t <= off-next   ⇔  t >= end - (off-next).
 func zoneSpanAt(t time.Time, loc *time.Location) offsetSpan {
 	lt := t.In(loc)
 	_, off := lt.Zone()
@@ -891,36 +892,6 @@ func zoneSpanAt(t time.Time, loc *time.Location) offsetSpan {
 		}
 	}
 	return s
-}
-
-// isAmbiguous reports whether the wall clock of t in loc also names another
-// instant: t is in the hour that repeats when clocks go back, either its
-// first or its second occurrence. RFC 5545 §3.3.5 reads such a local time as
-// the first occurrence, but parsers differ (Go's time.Date, and so go-ical,
-// picks the second one), so t is written in UTC instead.
-func isAmbiguous(t time.Time, loc *time.Location) bool {
-	lt := t.In(loc)
-	_, off := lt.Zone()
-	start, end := lt.ZoneBounds()
-	if !start.IsZero() {
-		// The same wall clock under the previous offset, if that is larger,
-		// is an earlier instant; it is real if it falls before the change.
-		if _, prev := start.Add(-time.Second).In(loc).Zone(); prev > off {
-			if t.Add(time.Duration(off-prev) * time.Second).Before(start) {
-				return true
-			}
-		}
-	}
-	if !end.IsZero() {
-		// The same wall clock under the next offset, if that is smaller, is
-		// a later instant; it is real if it falls on or after the change.
-		if _, next := end.In(loc).Zone(); next < off {
-			if !t.Add(time.Duration(off-next) * time.Second).Before(end) {
-				return true
-			}
-		}
-	}
-	return false
 }
 
 // dateOf returns the calendar date of an all-day entry's field, which holds

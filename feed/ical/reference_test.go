@@ -126,7 +126,7 @@ func referenceEvent(w *writer, e *feed.Entry) (*ics.VEvent, error) {
 // the wall clock repeats, else local with TZID, as a pre-formatted line when
 // the library would backslash-escape the TZID.
 func referenceTime(w *writer, ev *ics.VEvent, prop ics.ComponentProperty, t time.Time) []ics.Component {
-	if w.loc == nil || isAmbiguous(t, w.loc) {
+	if w.loc == nil || feed.ShownTwice(t.In(w.loc)) {
 		ev.SetProperty(prop, t.Format(utcLayout))
 		return nil
 	}

@@ -726,35 +726,13 @@ func clockOn(t time.Time, row string) string {
 
 // twiceLabel is what follows the local time t as clockOn writes it: its
 // zone's label after a space when the clocks show its reading twice
-// (shownTwice), else nothing.
+// (feed.ShownTwice), else nothing.
 func twiceLabel(t time.Time) string {
-	if !shownTwice(t) {
+	if !feed.ShownTwice(t) {
 		return ""
 	}
 	abbr, _ := t.Zone()
 	return " " + feed.ZoneLabel(abbr)
-}
-
-// shownTwice says whether the clocks of t's zone show t's reading at
-// another instant too: t is in the hour (or the time) they show again when
-// they go back, before the change (its first pass) or after it (its
-// second).
-func shownTwice(t time.Time) bool {
-	start, end := t.ZoneBounds()
-	_, off := t.Zone()
-	if !end.IsZero() {
-		_, next := end.Zone()
-		if back := time.Duration(off-next) * time.Second; back > 0 && end.Sub(t) <= back {
-			return true
-		}
-	}
-	if !start.IsZero() {
-		_, prev := start.Add(-time.Second).Zone()
-		if back := time.Duration(prev-off) * time.Second; back > 0 && t.Sub(start) < back {
-			return true
-		}
-	}
-	return false
 }
 
 // qrDataURL draws text as a QR code (error correction M, 4-module quiet

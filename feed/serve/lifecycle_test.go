@@ -5,9 +5,11 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"log/slog"
 	"net"
 	"net/http"
 	"strings"
+	"sync"
 	"sync/atomic"
 	"testing"
 	"testing/synctest"
@@ -260,4 +262,74 @@ func TestScheduledRefresh(t *testing.T) {
 			t.Errorf("builds %d, want 3 (manual, two scheduled)", b.calls)
 		}
 	})
+}
+
+// A build cut short by the shutdown (SIGTERM during the first build, or
+// during a reload's) is logged as stopped, at info level, not as a failed
+// refresh or a refused reload: an operator alerting on errors is not paged
+// by a restart. It is not counted among the failures either.
+func TestShutdownStopsBuildQuietly(t *testing.T) {
+	var logged strings.Builder
+	var mu sync.Mutex
+	entered := make(chan struct{}, 2)
+	reg := NewRegistry()
+	s, err := New(Options{
+		Build: func(ctx context.Context) (*publish.Bundle, error) {
+			entered <- struct{}{}
+			<-ctx.Done()
+			return nil, fmt.Errorf("publish: %w", ctx.Err())
+		},
+		Logger:  slog.New(slog.NewTextHandler(&lockedBuilder{b: &logged, mu: &mu}, nil)),
+		Metrics: reg,
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	ctx, cancel := context.WithCancel(t.Context())
+	runErr := make(chan error, 1)
+	go func() { runErr <- s.Run(ctx, listen(t)) }()
+	<-entered
+	reload := make(chan error, 1)
+	go func() {
+		reload <- s.Reload(ctx, func(ctx context.Context) (*publish.Bundle, error) {
+			return nil, fmt.Errorf("publish: %w", ctx.Err())
+		})
+	}()
+	cancel() // SIGTERM
+	if err := <-runErr; err != nil {
+		t.Fatalf("Run = %v, want nil", err)
+	}
+	if err := <-reload; !errors.Is(err, context.Canceled) {
+		t.Errorf("Reload = %v, want the cancellation", err)
+	}
+	mu.Lock()
+	out := logged.String()
+	mu.Unlock()
+	if strings.Contains(out, "level=ERROR") || strings.Contains(out, "level=WARN") {
+		t.Errorf("a shutdown during a build logged an error:\n%s", out)
+	}
+	if !strings.Contains(out, `level=INFO msg="refresh stopped: shutting down" trigger=initial`) {
+		t.Errorf("log does not say the first build was stopped:\n%s", out)
+	}
+	metrics := body(t, get(t, s.Handler(), "GET", "/metrics"))
+	for _, want := range []string{
+		`heliocal_refreshes_total{result="failure",trigger="initial"} 0`,
+		`heliocal_refreshes_total{result="failure",trigger="reload"} 0`,
+		`heliocal_reloads_refused_total 0`,
+	} {
+		if !strings.Contains(metrics, want) {
+			t.Errorf("/metrics lacks %s", want)
+		}
+	}
+}
+
+type lockedBuilder struct {
+	b  *strings.Builder
+	mu *sync.Mutex
+}
+
+func (l *lockedBuilder) Write(p []byte) (int, error) {
+	l.mu.Lock()
+	defer l.mu.Unlock()
+	return l.b.Write(p)
 }

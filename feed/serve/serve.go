@@ -364,6 +364,9 @@ func (s *Server) Reload(ctx context.Context, build BuildFunc) error {
 		return errors.New("serve: Reload: nil build function")
 	}
 	err := s.refresh(ctx, triggerReload, build)
+	if err != nil && stopped(ctx, err) {
+		return err // shutting down: not a refused reload
+	}
 	if err != nil {
 		s.refuseReload(err, true)
 		return err
@@ -389,6 +392,12 @@ func (s *Server) refuseReload(err error, build bool) {
 	s.healthMu.Unlock()
 }
 
+// stopped reports whether err, a build's, is ctx's cancellation: the
+// server is shutting down, and the build stopped because it was told to.
+func stopped(ctx context.Context, err error) bool {
+	return ctx.Err() != nil && errors.Is(err, ctx.Err())
+}
+
 // refresh runs a build (the current function, or next if non-nil) and swaps
 // in its result.
 func (s *Server) refresh(ctx context.Context, trigger string, next BuildFunc) (err error) {
@@ -401,6 +410,13 @@ func (s *Server) refresh(ctx context.Context, trigger string, next BuildFunc) (e
 	start := time.Now()
 	snap, err := s.runBuild(ctx, build)
 	d := time.Since(start)
+	if err != nil && stopped(ctx, err) {
+		// Shutting down: the build was cut short, not failed, and its
+		// feeds would not be served. Logged as what it is, not counted as
+		// a failure, and the health of the feeds served is untouched.
+		s.log.Info("refresh stopped: shutting down", "trigger", trigger, "duration", d)
+		return err
+	}
 	s.metrics.refreshSeconds.Observe(d.Seconds())
 
 	s.healthMu.Lock()
@@ -465,8 +481,8 @@ func (s *Server) runBuild(ctx context.Context, build BuildFunc) (snap *snapshot,
 
 // Run builds the feeds, serves HTTP on ln and refreshes on schedule until ctx
 // is cancelled; then it shuts down gracefully: it stops accepting, lets
-// in-flight requests and a running refresh finish within
-// Options.ShutdownTimeout, and returns nil. If the first build fails the
+// in-flight requests and a running scheduled refresh finish within
+// Options.ShutdownTimeout, stops the first build at once, and returns nil. If the first build fails the
 // server still answers (503 on /healthz and the feed routes) and retries with
 // back-off until a build succeeds; but if it fails because a feed is over
 // its size limit under service.oversize: fail (*publish.OversizeError),

@@ -299,6 +299,11 @@ func (s *Scheduler) run() {
 	s.lastDone, s.lastErr = time.Now(), err
 	s.mu.Unlock()
 	next := s.Next()
+	if err != nil && ctx.Err() != nil && errors.Is(err, ctx.Err()) {
+		// stopped by Stop (the server is shutting down), not failed
+		s.log.Info("scheduled refresh stopped: shutting down", "duration", d)
+		return
+	}
 	if err != nil {
 		s.log.Error("scheduled refresh failed", "err", err, "duration", d, "next_run", next)
 		return

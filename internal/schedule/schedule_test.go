@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"context"
 	"errors"
+	"fmt"
 	"log/slog"
 	"strings"
 	"sync"
@@ -455,4 +456,34 @@ func TestNextOnClocks(t *testing.T) {
 			}
 		}
 	}
+}
+
+// A run that Stop cancels (its bound reached while shutting down) is logged
+// as stopped, at info level, not as a failed refresh.
+func TestStoppedRunIsNotAFailure(t *testing.T) {
+	synctest.Test(t, func(t *testing.T) {
+		var buf bytes.Buffer
+		var mu sync.Mutex
+		log := slog.New(slog.NewTextHandler(&lockedWriter{w: &buf, mu: &mu}, nil))
+		s, err := New(func(ctx context.Context) error {
+			<-ctx.Done()
+			return fmt.Errorf("publish: %w", ctx.Err())
+		}, Options{Spec: "@every 1m", Location: time.UTC, Logger: log})
+		if err != nil {
+			t.Fatal(err)
+		}
+		s.Start(t.Context())
+		time.Sleep(61 * time.Second)
+		synctest.Wait()
+		ctx, cancel := context.WithTimeout(context.Background(), 10*time.Second)
+		defer cancel()
+		s.Stop(ctx)
+		synctest.Wait() // the run returns and is logged
+		mu.Lock()
+		out := buf.String()
+		mu.Unlock()
+		if strings.Contains(out, "scheduled refresh failed") || !strings.Contains(out, `level=INFO msg="scheduled refresh stopped: shutting down"`) {
+			t.Errorf("a run stopped by Stop logged as:\n%s", out)
+		}
+	})
 }

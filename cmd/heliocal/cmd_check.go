@@ -82,6 +82,9 @@ type checkReport struct {
 	// outDir is service.out_dir as written, which the text names beside
 	// OutDir when it is relative
 	outDir string
+	// limit is service.max_feed_bytes, which the text table's size of an
+	// Oversize feed is told apart from, as its warning or note tells it
+	limit int
 }
 
 type checkProblem struct {
@@ -129,9 +132,6 @@ type checkFeed struct {
 	// refused (Oversize without TrimmedTo, among the report's refused),
 	// Events are the whole window's and Bytes the size its refusal names.
 	TrimmedTo string `json:"trimmed_to,omitempty"`
-	// limit is service.max_feed_bytes, which the text table's size of an
-	// Oversize feed is told apart from, as its warning or note tells it
-	limit int
 }
 
 // writeCheckJSON prints a report, indented, on standard output.
@@ -246,6 +246,7 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 	}
 	zoneLines := zoneNotes(cfg, now)
 	limit := cfg.Service.MaxFeedBytes
+	r.limit = limit
 	for i, s := range srcs {
 		if err := ctx.Err(); err != nil {
 			return nil, nil, err
@@ -291,7 +292,7 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		r.Notes = append(r.Notes, later...)
 		// encoded as publish and serve encode it, under service.oversize:
 		// as it is, shortened, or refused
-		cf := checkFeed{ID: f.ID, Site: f.Site, Kinds: kinds, KindsShown: shown, Plans: len(f.Plans), DaysBack: f.DaysBack, DaysAhead: f.DaysAhead, limit: limit}
+		cf := checkFeed{ID: f.ID, Site: f.Site, Kinds: kinds, KindsShown: shown, Plans: len(f.Plans), DaysBack: f.DaysBack, DaysAhead: f.DaysAhead}
 		whole := len(cal.Entries)
 		data, err := publish.Encode(cal, &opts)
 		cf.Events = len(cal.Entries) // as trim left them
@@ -357,7 +358,7 @@ func writeCheckText(g *globals, r *checkReport, zoneLines []string) error {
 		default:
 			kinds = append(kinds[:len(kinds):len(kinds)], fmt.Sprintf("%d plans", f.Plans))
 		}
-		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\n", f.ID, f.Site, strings.Join(kinds, ","), window(f.DaysBack, f.DaysAhead), feed.FormatCount(f.Events), f.size())
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\n", f.ID, f.Site, strings.Join(kinds, ","), window(f.DaysBack, f.DaysAhead), feed.FormatCount(f.Events), f.size(r.limit))
 	}
 	tw.Flush()
 	for _, n := range r.Notes {
@@ -373,10 +374,10 @@ func writeCheckText(g *globals, r *checkReport, zoneLines []string) error {
 // size writes a feed's size as every size heliocal reports, and that of a
 // feed over max_feed_bytes (shortened or refused for it) with the decimals
 // that tell it from the limit, as the feed's warning or note writes it:
-// "1.05 MB" over "1 MB", not "1.0 MB".
-func (f *checkFeed) size() string {
-	if f.Oversize && f.limit > 0 {
-		s, _ := publish.FormatBytesOver(int64(f.Bytes), int64(f.limit))
+// "1.05 MB" over "1 MB", not "1.0 MB"; limit is service.max_feed_bytes.
+func (f *checkFeed) size(limit int) string {
+	if f.Oversize && limit > 0 {
+		s, _ := publish.FormatBytesOver(int64(f.Bytes), int64(limit))
 		return s
 	}
 	return publish.FormatBytes(int64(f.Bytes))

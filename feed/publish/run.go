@@ -82,6 +82,11 @@ func (r *publishRun) stage(ctx context.Context) error {
 			r.mu.Unlock()
 		}
 		rd.staged = sf
+		if diskFull(err) {
+			// staging replaces nothing: say so, as a failed commit does,
+			// to whoever finds the disk full
+			err = fmt.Errorf("%w; %s", err, nothingChanged)
+		}
 		return err
 	}
 	err := renderAll(ctx, r.sel, r.opts, work, func(rd rendered) error {

@@ -8,3 +8,6 @@ import (
 )
 
 func isEINVAL(err error) bool { return errors.Is(err, syscall.EINVAL) }
+
+// errDiskFull are the errors of a full disk and of an exhausted quota.
+var errDiskFull = []error{syscall.ENOSPC, syscall.EDQUOT}

@@ -475,7 +475,22 @@ func (w *Writer) endUndo(err error) error {
 	if serr := syncDir(w.Dir); serr != nil {
 		return fmt.Errorf("%w; the files published before are put back, but %w", err, serr)
 	}
-	return fmt.Errorf("%w; nothing was changed: the files published before are as they were", err)
+	return fmt.Errorf("%w; %s", err, nothingChanged)
+}
+
+// nothingChanged ends the error of a publish that failed without changing
+// any published file.
+const nothingChanged = "nothing was changed: the files published before are as they were"
+
+// diskFull reports whether err is a full disk or an exhausted quota
+// (ENOSPC, EDQUOT: errDiskFull in sys_unix.go).
+func diskFull(err error) bool {
+	for _, e := range errDiskFull {
+		if errors.Is(err, e) {
+			return true
+		}
+	}
+	return false
 }
 
 // removePrevs removes the previous contents a killed commit kept (see

@@ -480,7 +480,11 @@ func conditionsOf(site feed.Site, sites []feed.Site) feed.Site {
 func Publish(ctx context.Context, srcs []Source, opts RenderOptions, w *Writer) (Stats, error) {
 	r, err := startRun(srcs, &opts, w)
 	if err == nil {
-		err = r.stage(ctx)
+		if err = r.stage(ctx); err != nil && ctx.Err() != nil && errors.Is(err, ctx.Err()) {
+			// interrupted (SIGINT, SIGTERM) while computing: staging
+			// replaces nothing, and the error says so
+			err = fmt.Errorf("publish: stopped before any file was replaced: %w; %s", ctx.Err(), nothingChanged)
+		}
 	}
 	if err == nil {
 		err = r.commit(ctx)

@@ -605,3 +605,33 @@ func TestFailedCommitWithoutLinksSaysWhatStaysNew(t *testing.T) {
 		t.Errorf("%d renames, want 6: feeds.json without the replaced feeds, the three feeds, feeds.json, index.html", renames)
 	}
 }
+
+// A run interrupted while it computes and writes its new files (SIGINT or
+// SIGTERM cancel its context) leaves the published files as they were, no
+// temporary file of its own, and an error that says so, not the bare
+// "context canceled".
+func TestInterruptedPublishSaysNothingChanged(t *testing.T) {
+	dir := t.TempDir()
+	publishTo(t, dir, "", testOptions())
+	old := snapshot(t, dir)
+	ctx, cancel := context.WithCancel(context.Background())
+	defer cancel()
+	w := &Writer{Dir: dir, createTemp: func(dir, pattern string) (tempFile, error) {
+		cancel() // the signal comes while the first new file is written
+		return os.CreateTemp(dir, pattern)
+	}}
+	_, err := Publish(ctx, Calendars(testCalendars(t, " (revised)")...), testOptions(), w)
+	if !errors.Is(err, context.Canceled) {
+		t.Fatalf("Publish = %v, want the cancellation", err)
+	}
+	want := "publish: stopped before any file was replaced: context canceled; nothing was changed: the files published before are as they were"
+	if err.Error() != want {
+		t.Errorf("error\n%s\nwant\n%s", err, want)
+	}
+	if tmp := tempNames(t, dir); len(tmp) > 0 {
+		t.Errorf("temporary files left behind: %v", tmp)
+	}
+	if now := snapshot(t, dir); !maps.EqualFunc(now, old, bytes.Equal) {
+		t.Errorf("the published files changed: %v, were %v", keys(now), keys(old))
+	}
+}

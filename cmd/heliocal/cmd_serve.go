@@ -4,6 +4,7 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"io/fs"
 	"log/slog"
 	"net"
 	"os"
@@ -71,7 +72,11 @@ func reloadServe(ctx context.Context, g *globals, log *slog.Logger, srv *serve.S
 	}
 	next, src, err := loadConfig(g)
 	if err != nil {
-		log.Error("reload refused: the new configuration is invalid; still serving the old feeds", "err", err)
+		msg := "reload refused: the new configuration is invalid; still serving the old feeds"
+		if errors.Is(err, fs.ErrNotExist) || errors.Is(err, fs.ErrPermission) { // removed, or made unreadable
+			msg = "reload refused: the configuration file cannot be read; still serving the old feeds"
+		}
+		log.Error(msg, "err", err)
 		srv.RefuseReload(err)
 		return nil
 	}

@@ -205,3 +205,47 @@ func TestServeRefusesOversizeFeed(t *testing.T) {
 		t.Errorf("serve exited %d:\n%s", code, logs.String())
 	}
 }
+
+// A configuration file removed before a SIGHUP is said to be unreadable,
+// not invalid; the feeds stay served, /healthz names the file, and the
+// file put back is reloaded.
+func TestServeReloadFileRemoved(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "sky.yaml")
+	if err := os.WriteFile(path, []byte(reloadSite), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	addr, logs, stop := serveInBackground(t, "--config", path, "--access-log=false")
+	fetch := func(p string) (int, string) {
+		resp, err := http.Get("http://" + addr + p)
+		if err != nil {
+			return 0, ""
+		}
+		defer resp.Body.Close()
+		b, _ := io.ReadAll(resp.Body)
+		return resp.StatusCode, string(b)
+	}
+	waitFor(t, logs, "the first build", func() bool { code, _ := fetch("/healthz"); return code == http.StatusOK })
+	if err := os.Rename(path, path+".moved"); err != nil {
+		t.Fatal(err)
+	}
+	sendSIGHUP(t)
+	const refused = `msg="reload refused: the configuration file cannot be read; still serving the old feeds" err="--config ` // then the path
+	waitFor(t, logs, "the refusal", func() bool { return strings.Contains(logs.String(), refused) })
+	if l := logs.String(); !strings.Contains(l, path+`: no such file"`) || strings.Contains(l, "is invalid") {
+		t.Errorf("the refusal does not name the missing file, or calls it invalid:\n%s", grepLines(l, "reload"))
+	}
+	if code, _ := fetch("/feeds/north-sun.ics"); code != http.StatusOK {
+		t.Errorf("the feed after the refused reload: %d", code)
+	}
+	if _, h := fetch("/healthz"); !strings.Contains(h, `"degraded"`) || !strings.Contains(h, "no such file") {
+		t.Errorf("/healthz after the refused reload:\n%s", h)
+	}
+	if err := os.Rename(path+".moved", path); err != nil {
+		t.Fatal(err)
+	}
+	sendSIGHUP(t)
+	waitFor(t, logs, "the reload", func() bool { return strings.Contains(logs.String(), "configuration reloaded") })
+	if code := stop(); code != 0 {
+		t.Errorf("serve exited %d:\n%s", code, logs.String())
+	}
+}

@@ -572,12 +572,11 @@ func TestChartDateYearWhenTwice(t *testing.T) {
 	}
 }
 
-// The chart's words speak of the year from today: the weeks drawn before
-// today (here three days of polar night) count neither in the shortest day
-// nor in the days the Sun stays down.
-func TestChartSummaryFromToday(t *testing.T) {
-	first := time.Date(2027, 1, 10, 0, 0, 0, 0, time.UTC)
-	var days []ChartDay
+// polarNightDays are ten days of a chart from 10 January 2027, the first
+// three of polar night, then from 3 h of daylight on 13 January to 9 h on
+// 19 January (an hour more each day).
+func polarNightDays() (first time.Time, days []ChartDay) {
+	first = time.Date(2027, 1, 10, 0, 0, 0, 0, time.UTC)
 	for i := range 10 {
 		d := ChartDay{Date: first.AddDate(0, 0, i), Daylight: time.Duration(i) * time.Hour}
 		if i < 3 {
@@ -585,6 +584,14 @@ func TestChartSummaryFromToday(t *testing.T) {
 		}
 		days = append(days, d)
 	}
+	return first, days
+}
+
+// The chart's words speak of the year from today: the weeks drawn before
+// today (here three days of polar night) count neither in the shortest day
+// nor in the days the Sun stays down.
+func TestChartSummaryFromToday(t *testing.T) {
+	first, days := polarNightDays()
 	v := chart("ice", "Ice camp", &SiteChart{Days: days, Today: first.AddDate(0, 0, 3)})
 	if strings.Contains(v.Summary, "stays down") || !strings.Contains(v.Summary, "Daylight from 3 h (13 Jan) to 9 h (19 Jan)") {
 		t.Errorf("summary %q: want the days from 13 Jan only", v.Summary)
@@ -600,15 +607,7 @@ func TestChartSummaryFromToday(t *testing.T) {
 // down, as it counts the days it stays up; with no day of midnight Sun
 // before them, the Sun is named in that sentence.
 func TestChartSummaryPolarNight(t *testing.T) {
-	first := time.Date(2027, 1, 10, 0, 0, 0, 0, time.UTC)
-	var days []ChartDay
-	for i := range 10 {
-		d := ChartDay{Date: first.AddDate(0, 0, i), Daylight: time.Duration(i) * time.Hour}
-		if i < 3 {
-			d.Daylight = 0
-		}
-		days = append(days, d)
-	}
+	first, days := polarNightDays()
 	v := chart("ice", "Ice camp", &SiteChart{Days: days, Today: first})
 	if want := "Daylight up to 9 h (19 Jan). The Sun stays down all day on 3 days."; !strings.HasPrefix(v.Summary, want) {
 		t.Errorf("summary %q: want it to start %q", v.Summary, want)

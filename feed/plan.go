@@ -851,10 +851,7 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 			// the note's title as the reason in brackets, within the
 			// sentence: "(polar night: the Sun does not rise today)"
 			t, _, _ := describeNote(w.site, n)
-			if t != "" && t[0] >= 'A' && t[0] <= 'Z' {
-				t = string(t[0]+'a'-'A') + t[1:]
-			}
-			b = append(append(append(b, " ("...), t...), ')')
+			b = append(append(append(b, " ("...), Small(t)...), ')')
 		}
 		return done(append(b, '.'))
 	}
@@ -1210,7 +1207,7 @@ func inText(k config.Kind) string {
 			return n
 		}
 	}
-	return strings.ToLower(n[:1]) + n[1:]
+	return Small(n)
 }
 
 // plainName is a kind's name in words: "New moon", "Sunset", "day length

@@ -153,6 +153,28 @@ func TestCapital(t *testing.T) {
 	}
 }
 
+// Small makes the first letter a small one by the Unicode case mappings
+// (UnicodeData.txt: U+0054 T → U+0074 t, U+00C9 É → U+00E9 é, U+0391 Α →
+// U+03B1 α, U+0130 İ → U+0069 i, one byte shorter in UTF-8); a first
+// character without one (a digit, a small letter) leaves the text as it is.
+func TestSmall(t *testing.T) {
+	for _, c := range []struct{ in, want string }{
+		{"Polar night: the Sun does not rise today", "polar night: the Sun does not rise today"},
+		{"polar", "polar"},
+		{"T", "t"},
+		{"Été", "été"},
+		{"\u0391 Centauri", "\u03b1 Centauri"},
+		{"\u0130stanbul", "istanbul"},
+		{"24 h", "24 h"},
+		{"", ""},
+		{"\xffAb", "\xffAb"}, // not UTF-8: left as it is
+	} {
+		if got := Small(c.in); got != c.want {
+			t.Errorf("Small(%q) = %q, want %q", c.in, got, c.want)
+		}
+	}
+}
+
 // ZoneLabel names a zone as its abbreviation where the time zone database
 // has one, and spells out the numeric ones it gives where it has none
 // (IANA tz database: America/Santiago "-04" and "-03", Asia/Kathmandu

@@ -681,7 +681,7 @@ func kindMeanings(s *config.Site, specs []config.KindSpec) []string {
 	for _, spec := range specs {
 		if name, m := filterMeaning(spec); m != "" {
 			if i := slices.Index(filters, m); i >= 0 {
-				filterKinds[i] += "\x00" + strings.ToLower(name[:1]) + name[1:]
+				filterKinds[i] += "\x00" + Small(name)
 			} else {
 				filters, filterKinds = append(filters, m), append(filterKinds, name)
 			}
@@ -789,6 +789,16 @@ func Capital(s string) string {
 	r, n := utf8.DecodeRuneInString(s)
 	if u := unicode.ToUpper(r); u != r {
 		return string(u) + s[n:]
+	}
+	return s
+}
+
+// Small writes s with its first letter a small one, as the text is read
+// within a sentence: "Polar night" is "polar night"; the twin of Capital.
+func Small(s string) string {
+	r, n := utf8.DecodeRuneInString(s)
+	if l := unicode.ToLower(r); l != r {
+		return string(l) + s[n:]
 	}
 	return s
 }
@@ -957,7 +967,7 @@ func offsetTitle(offset time.Duration, title string) string {
 	if offset < 0 {
 		word, offset = "before", -offset
 	}
-	return amount(offset) + " " + word + " " + strings.ToLower(title[:1]) + title[1:]
+	return amount(offset) + " " + word + " " + Small(title)
 }
 
 // amount is Amount: "30 min", "1 h", "1 h 15 min", "45 s".

@@ -3,7 +3,6 @@ package publish
 import (
 	"fmt"
 	"slices"
-	"strings"
 	"time"
 
 	"heliocal/feed"
@@ -103,7 +102,7 @@ func spanWords(ss []ClockSpan, lamps bool, from, first, last time.Time) string {
 		ahead = append(ahead, p)
 	}
 	if len(ahead) == 0 {
-		return "No " + strings.ToLower(what[:1]) + what[1:] + " from today on."
+		return "No " + feed.Small(what) + " from today on."
 	}
 	var dates []time.Time
 	longest := ahead[0]

@@ -228,12 +228,19 @@ func brokenLink(field, out, p string, statErr error) error {
 // nothing can be created (/proc/1, for the superuser too), is named with the
 // flag or key that gave it and a hint, not by the temporary file or lock file
 // the publish tried first ("open public/.farm-sun.ics.tmp-81…: permission
-// denied"). What the publish says of the files it left (the writer keeps
-// nothing half-written: "nothing was changed: …") follows. It stays a
+// denied"); a full disk or an exhausted quota is named with the file that
+// found it so, as the user knows it ("farm-sun.ics"). What the publish says
+// of the files it left (the writer keeps nothing half-written: "nothing was
+// changed: …") follows. It stays a
 // run-time failure (exit 1): out was checked to be a directory, or to be one
 // that can be created, before (checkOutDir). Other errors are returned as
 // they are.
 func outDirFailed(field, out string, err error) error {
+	if full := (*publish.DiskFullError)(nil); errors.As(err, &full) {
+		_, tail, _ := strings.Cut(err.Error(), full.Error())
+		return &outDirError{msg: fmt.Sprintf("%s: %q: no room for %s (%s; free some space on its file system, or give a directory on another)%s",
+			field, out, full.File, full.Reason(), tail), err: err}
+	}
 	var pe *fs.PathError
 	if !errors.As(err, &pe) || !sameTree(pe.Path, out) {
 		return err

@@ -9,6 +9,8 @@ import (
 	"strings"
 	"syscall"
 	"testing"
+
+	"heliocal/feed/publish"
 )
 
 // A publish that cannot write into its output directory names the
@@ -18,8 +20,8 @@ import (
 // written), and errors.Is still finds the system's error. The errors are
 // those the publish returns (feed/publish: writeTemp, lock, prepare's
 // MkdirAll, endUndo), with the errno of a directory without write
-// permission (EACCES), of a read-only file system (EROFS) and of a full
-// disk (ENOSPC, left as it is).
+// permission (EACCES), of a read-only file system (EROFS), of a full disk
+// (ENOSPC) and of an exhausted quota (EDQUOT).
 func TestOutDirFailedWords(t *testing.T) {
 	pathErr := func(op, path string, errno syscall.Errno) error { return &fs.PathError{Op: op, Path: path, Err: errno} }
 	for _, tc := range []struct {
@@ -49,6 +51,13 @@ func TestOutDirFailedWords(t *testing.T) {
 			fmt.Errorf("%w; nothing was changed: the files published before are as they were",
 				fmt.Errorf("publish: replace %s: %w", filepath.Join("sky", "farm-sun.ics"), pathErr("rename", filepath.Join("sky", "farm-sun.ics"), syscall.EPERM))),
 			`--out: "sky": cannot write into it (operation not permitted; give a directory this user may write to, or change its permissions); nothing was changed: the files published before are as they were`},
+		{"full disk", "--out", "sky",
+			fmt.Errorf("%w; nothing was changed: the files published before are as they were",
+				&publish.DiskFullError{Dir: "sky", File: "farm-sun.ics", Err: pathErr("write", filepath.Join("sky", ".farm-sun.ics.tmp-1"), syscall.ENOSPC)}),
+			`--out: "sky": no room for farm-sun.ics (no space left on device; free some space on its file system, or give a directory on another); nothing was changed: the files published before are as they were`},
+		{"quota", "service.out_dir", "public",
+			&publish.DiskFullError{Dir: "public", File: "feeds.json", Err: pathErr("open", filepath.Join("public", ".feeds.json.tmp-*"), syscall.EDQUOT)},
+			`service.out_dir: "public": no room for feeds.json (disk quota exceeded; free some space on its file system, or give a directory on another)`},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			err := outDirFailed(tc.field, tc.out, tc.err)
@@ -63,10 +72,10 @@ func TestOutDirFailedWords(t *testing.T) {
 			}
 		})
 	}
-	// a full disk, a file outside the directory, or a missing file below
-	// it, is said as it was
+	// another error of the system, a file outside the directory, or a
+	// missing file below it, is said as it was
 	for _, err := range []error{
-		fmt.Errorf("publish: write farm-sun.ics: %w", pathErr("write", filepath.Join("sky", ".farm-sun.ics.tmp-1"), syscall.ENOSPC)),
+		fmt.Errorf("publish: write farm-sun.ics: %w", pathErr("write", filepath.Join("sky", ".farm-sun.ics.tmp-1"), syscall.EIO)),
 		fmt.Errorf("publish: %w", pathErr("open", filepath.Join("elsewhere", "x"), syscall.EACCES)),
 		fmt.Errorf("publish: %w", pathErr("open", filepath.Join("sky", "sub", "x"), syscall.ENOENT)),
 	} {

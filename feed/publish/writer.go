@@ -273,7 +273,7 @@ func (w *Writer) writeTemp(name string, data []byte) (_ string, err error) {
 	}
 	f, err := create(w.Dir, w.tempPattern(name))
 	if err != nil {
-		return "", fmt.Errorf("publish: write %s: %w", name, err)
+		return "", w.writeFailed(name, err)
 	}
 	tmp := f.Name()
 	closed := false
@@ -298,11 +298,11 @@ func (w *Writer) writeTemp(name string, data []byte) (_ string, err error) {
 		}
 	}
 	if err != nil {
-		return "", fmt.Errorf("publish: write %s: %w", name, err)
+		return "", w.writeFailed(name, err)
 	}
 	if chmod {
 		if err = f.Chmod(FileMode); err != nil {
-			return "", fmt.Errorf("publish: write %s: %w", name, err)
+			return "", w.writeFailed(name, err)
 		}
 	}
 	if isFile {
@@ -311,13 +311,52 @@ func (w *Writer) writeTemp(name string, data []byte) (_ string, err error) {
 		err = f.Sync()
 	}
 	if err != nil {
-		return "", fmt.Errorf("publish: write %s: %w", name, err)
+		return "", w.writeFailed(name, err)
 	}
 	closed = true
 	if err = f.Close(); err != nil {
-		return "", fmt.Errorf("publish: write %s: %w", name, err)
+		return "", w.writeFailed(name, err)
 	}
 	return tmp, nil
+}
+
+// writeFailed is the error of writing name's temporary file. A full disk or
+// an exhausted quota names the output directory and name, not the
+// temporary file the system names (".farm-sun.ics.tmp-81…").
+func (w *Writer) writeFailed(name string, err error) error {
+	if diskFull(err) {
+		return &DiskFullError{Dir: w.Dir, File: name, Err: err}
+	}
+	return fmt.Errorf("publish: write %s: %w", name, err)
+}
+
+// DiskFullError is a file that could not be written into the output
+// directory because its disk is full or the user's quota exhausted:
+// "publish: write farm-sun.ics into public: no space left on device". It
+// unwraps to the system's error (errors.Is finds syscall.ENOSPC).
+type DiskFullError struct {
+	Dir  string // the output directory, as the Writer was given it
+	File string // the file's name in Dir: "farm-sun.ics", "feeds.json"
+	Err  error
+}
+
+func (e *DiskFullError) Error() string {
+	return fmt.Sprintf("publish: write %s into %s: %s", e.File, e.Dir, e.Reason())
+}
+
+// Reason is what the system said, without the temporary file's path: "no
+// space left on device", "disk quota exceeded".
+func (e *DiskFullError) Reason() string { return systemWords(e.Err) }
+
+func (e *DiskFullError) Unwrap() error { return e.Err }
+
+// systemWords is what the system said of err, without the path of a
+// *fs.PathError ("no space left on device").
+func systemWords(err error) string {
+	if pe := (*fs.PathError)(nil); errors.As(err, &pe) {
+		return pe.Err.Error()
+	}
+	return err.Error()
 }
 
 // createTemp is os.CreateTemp creating the file with FileMode (less the

@@ -264,6 +264,17 @@ func TestFailedPublishKeepsPublishedFiles(t *testing.T) {
 			if !strings.HasPrefix(err.Error(), "publish: write ") {
 				t.Errorf("error %q does not name the file", err)
 			}
+			// the file as the directory will hold it, and the directory,
+			// not the temporary file the system named
+			var full *DiskFullError
+			if !errors.As(err, &full) || !slices.ContainsFunc(newBundle.Files, func(f File) bool { return f.Name == full.File }) {
+				t.Errorf("error %q: no DiskFullError naming a file of the bundle", err)
+			} else if want := "publish: write " + full.File + " into " + dir + ": " + tc.wantErr.Error() + "; nothing was changed"; !strings.HasPrefix(err.Error(), want) {
+				t.Errorf("error %q does not start with %q", err, want)
+			}
+			if strings.Contains(err.Error(), ".tmp-") {
+				t.Errorf("error %q names the temporary file", err)
+			}
 			if tmp := tempNames(t, dir); len(tmp) > 0 {
 				t.Errorf("temporary files left behind: %v", tmp)
 			}

@@ -35,6 +35,12 @@ func (w *Writer) lockDir(ctx context.Context) (unlock func(), err error) {
 	path := filepath.Join(w.Dir, LockName)
 	f, err := os.OpenFile(path, os.O_RDWR|os.O_CREATE, FileMode)
 	if err != nil {
+		if fi, serr := os.Stat(path); serr == nil && fi.IsDir() {
+			// a directory made under the lock file's name (by hand, by a
+			// copy of the tree): the system's "is a directory" alone
+			// leaves the user guessing what the name is
+			return nil, fmt.Errorf("publish: lock %s: %w; remove it: it is heliocal's lock file (an empty file), which the next publish creates again", path, systemErr(err))
+		}
 		return nil, fmt.Errorf("publish: lock %s: %w", path, err)
 	}
 	// Mode as documented whatever the umask (the file is empty; it is only

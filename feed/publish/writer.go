@@ -352,11 +352,15 @@ func (e *DiskFullError) Unwrap() error { return e.Err }
 
 // systemWords is what the system said of err, without the path of a
 // *fs.PathError ("no space left on device").
-func systemWords(err error) string {
+func systemWords(err error) string { return systemErr(err).Error() }
+
+// systemErr is the system's error inside err: a *fs.PathError's Err (an
+// errno), without the path; err itself when it holds none.
+func systemErr(err error) error {
 	if pe := (*fs.PathError)(nil); errors.As(err, &pe) {
-		return pe.Err.Error()
+		return pe.Err
 	}
-	return err.Error()
+	return err
 }
 
 // createTemp is os.CreateTemp creating the file with FileMode (less the

@@ -10,11 +10,13 @@ import (
 	"net/http"
 	"net/url"
 	"runtime/debug"
+	"slices"
 	"strconv"
 	"strings"
 	"sync"
 	"time"
 
+	"heliocal/feed/publish"
 	"heliocal/internal/schedule"
 )
 
@@ -317,7 +319,7 @@ func (s *Server) health() (health, int) {
 		hb.LastAttempt = &t
 	}
 	if s.lastErr != nil {
-		hb.LastError = oneLine(s.lastErr.Error())
+		hb.LastError = errLine(s.lastErr)
 	}
 	failed := s.lastErr != nil
 	if s.reloadErr != nil {
@@ -326,7 +328,7 @@ func (s *Server) health() (health, int) {
 			what = "configuration reload at %s failed to build"
 		}
 		hb.Reasons = append(hb.Reasons, fmt.Sprintf(what+", still serving the previous configuration: %s",
-			s.reloadAt.UTC().Format(time.RFC3339), oneLine(s.reloadErr.Error())))
+			s.reloadAt.UTC().Format(time.RFC3339), errLine(s.reloadErr)))
 	}
 	if period, err := schedule.Interval(s.sched.Spec(), s.sched.Location(), now); err == nil && !s.lastSuccess.IsZero() {
 		if age := now.Sub(s.lastSuccess); age > 2*period {
@@ -354,6 +356,33 @@ func (s *Server) health() (health, int) {
 		hb.Built, hb.Feeds, hb.Events = &t, snap.feeds, snap.events
 	}
 	return hb, code
+}
+
+// maxErrLine is the length beyond which errLine gives the number of joined
+// errors and the first, not each of them.
+const maxErrLine = 1024
+
+// errLine is err on one line for /healthz. A joined error (publish's
+// refusal of every feed over service.max_feed_bytes, one line each in the
+// log) is given whole, its lines separated by "; ", or, when that is over
+// maxErrLine bytes, as its number of errors and the first: "40 feeds over
+// service.max_feed_bytes, the first: publish: feed a: …". Other errors
+// (a configuration's problems, listed in the log) keep their first line.
+func errLine(err error) string {
+	var joined interface{ Unwrap() []error }
+	if !errors.As(err, &joined) {
+		return oneLine(err.Error())
+	}
+	lines := strings.FieldsFunc(err.Error(), func(r rune) bool { return r == '\n' || r == '\r' })
+	if one := strings.Join(lines, "; "); len(one) <= maxErrLine || len(lines) < 2 {
+		return one
+	}
+	errs := joined.Unwrap()
+	what := "errors"
+	if !slices.ContainsFunc(errs, func(e error) bool { return !errors.As(e, new(*publish.OversizeError)) }) {
+		what = "feeds over service.max_feed_bytes"
+	}
+	return fmt.Sprintf("%d %s, the first: %s", len(errs), what, lines[0])
 }
 
 // plain writes a one-line text/plain response that is never cached.

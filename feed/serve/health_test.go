@@ -4,6 +4,7 @@ import (
 	"context"
 	"encoding/json"
 	"errors"
+	"fmt"
 	"strings"
 	"testing"
 	"time"
@@ -90,4 +91,60 @@ func TestHealthDegraded(t *testing.T) {
 		t.Fatal(err)
 	}
 	check("after a refresh", "ok")
+}
+
+// A reload refused because several feeds are over service.max_feed_bytes
+// (publish joins one error per feed, each a line of the log) names every
+// one of them on /healthz, in its reason and last_error, not only the
+// first; so many that the line would be long are counted, with the first.
+func TestHealthNamesEveryOversizeFeed(t *testing.T) {
+	refusals := func(ids ...string) []error {
+		errs := make([]error, len(ids))
+		for i, id := range ids { // as publish's renderOne wraps them
+			errs[i] = fmt.Errorf("publish: feed %s: %w", id, &publish.OversizeError{Feed: id, Bytes: 1_200_000, Limit: 1_000_000})
+		}
+		return errs
+	}
+	refusal := func(ids ...string) error { return errors.Join(refusals(ids...)...) }
+	over := (&publish.OversizeError{Bytes: 1_200_000, Limit: 1_000_000}).Error()
+	for _, tc := range []struct {
+		name string
+		err  error
+		want string
+	}{
+		{"two feeds", refusal("plot-sun", "barn-moon"),
+			"publish: feed plot-sun: " + over + "; publish: feed barn-moon: " + over},
+		{"ten feeds", refusal("f0", "f1", "f2", "f3", "f4", "f5", "f6", "f7", "f8", "f9"),
+			"10 feeds over service.max_feed_bytes, the first: publish: feed f0: " + over},
+		// publish stops at a feed that fails otherwise, with those refused before it
+		{"ten errors, one not of size", errors.Join(append(refusals("f0", "f1", "f2", "f3", "f4", "f5", "f6", "f7", "f8"), errors.New("publish: feed f9: ical: encoder failed"))...),
+			"10 errors, the first: publish: feed f0: " + over},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			s, err := New(Options{Build: (&builder{b: testBundle("a")}).build, Logger: quiet(), Metrics: NewRegistry(),
+				Schedule: "15 3 * * *", ScheduleZone: time.UTC})
+			if err != nil {
+				t.Fatal(err)
+			}
+			clock := time.Date(2026, 12, 2, 3, 15, 0, 0, time.UTC)
+			s.now = func() time.Time { return clock }
+			if err := s.Refresh(t.Context()); err != nil {
+				t.Fatal(err)
+			}
+			if s.Reload(t.Context(), func(context.Context) (*publish.Bundle, error) { return nil, tc.err }) == nil {
+				t.Fatal("a failing reload succeeded")
+			}
+			var hb health
+			if err := json.Unmarshal([]byte(body(t, get(t, s.Handler(), "GET", "/healthz"))), &hb); err != nil {
+				t.Fatal(err)
+			}
+			reason := "configuration reload at 2026-12-02T03:15:00Z failed to build, still serving the previous configuration: " + tc.want
+			if len(hb.Reasons) != 1 || hb.Reasons[0] != reason {
+				t.Errorf("reasons %q\nwant [%q]", hb.Reasons, reason)
+			}
+			if hb.LastError != tc.want {
+				t.Errorf("last_error %q\nwant %q", hb.LastError, tc.want)
+			}
+		})
+	}
 }

@@ -1546,6 +1546,16 @@ const (
 	LongitudeText = "decimal degrees, east positive, west negative, e.g. -72.26 for 72°15′36″W"
 )
 
+// HorizonText says what a horizon of one altitude is, the hint of one out
+// of range; HorizonPointsText adds the skyline points written
+// azimuth:altitude, the hint of a horizon that is neither (the
+// configuration's horizon takes a list of points instead). A site's
+// horizon, --horizon and an ad-hoc feed's horizon say it in these words.
+const (
+	HorizonText       = "the altitude of the visible skyline in degrees: 0 for a flat horizon, 2 behind low hills"
+	HorizonPointsText = HorizonText + "; or skyline points azimuth:altitude, e.g. 0:2,90:8,180:1"
+)
+
 // coordinateText is LatitudeText and LongitudeText by key.
 var coordinateText = map[string]string{"latitude": LatitudeText, "longitude": LongitudeText}
 

@@ -299,7 +299,7 @@ func (s *Site) HorizonFromText(flag, v string) error {
 	if x, err := strconv.ParseFloat(t, 64); err == nil {
 		if !(x >= MinHorizon && x <= MaxHorizon) {
 			return FieldError{Path: flag, Value: v, Msg: fmt.Sprintf("must be within %g..%g degrees", MinHorizon, MaxHorizon),
-				Hint: "the altitude of the visible horizon, or skyline points azimuth:altitude, e.g. 0:2,90:8,180:1"}
+				Hint: HorizonText}
 		}
 		s.Horizon, s.HorizonValue = x, x
 		return nil

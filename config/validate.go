@@ -544,7 +544,7 @@ func (s *Site) validate(ps *problems, p string) {
 		ps.add(p+".elevation", ftoa(s.Elevation), fmt.Sprintf("must be within %g..%g metres", MinElevation, MaxElevation), ElevationHint(s.Elevation))
 	}
 	if !(s.Horizon >= MinHorizon && s.Horizon <= MaxHorizon) {
-		ps.add(p+".horizon", ftoa(s.Horizon), fmt.Sprintf("must be within %g..%g degrees", MinHorizon, MaxHorizon), "the altitude of the visible skyline; 0 for a flat horizon")
+		ps.add(p+".horizon", ftoa(s.Horizon), fmt.Sprintf("must be within %g..%g degrees", MinHorizon, MaxHorizon), HorizonText)
 	}
 	if s.Pressure != nil && !(*s.Pressure >= MinPressure && *s.Pressure <= MaxPressure) {
 		ps.add(p+".pressure_hpa", ftoa(*s.Pressure), fmt.Sprintf("must be within %g..%g hPa", MinPressure, MaxPressure), "the air pressure at the site (not reduced to sea level), e.g. 1013; leave it out for standard refraction")

@@ -423,7 +423,7 @@ func TestEventsHorizonSkylineFlag(t *testing.T) {
 		}
 	}
 	for h, want := range map[string]string{
-		"50": "--horizon: 50: must be within -5..45 degrees",
+		"50": "--horizon: 50: must be within -5..45 degrees (the altitude of the visible skyline in degrees: 0 for a flat horizon, 2 behind low hills)",
 		// a point named by its place in the list and as written, as an
 		// ad-hoc feed's horizon parameter names it
 		"0:2,90:x":      `--horizon: "0:2,90:x": point 2 (90:x): must be azimuth:altitude`,

@@ -355,14 +355,15 @@ func parseFloat(name, v string) (float64, error) {
 
 // numberHint says how to write the number of a parameter, v, that is not
 // one ("2°", "120 m", "33°27′S"): that of a place in the words of the
-// configuration's hint for its key (config.NumberTextHint); "" for a
-// parameter without a hint.
+// configuration's hint for its key (config.NumberTextHint), a horizon's in
+// those of --horizon (config.HorizonPointsText); "" for a parameter without
+// a hint.
 func numberHint(name, v string) string {
 	if key, ok := paramKeys[name]; ok {
 		return config.NumberTextHint(key, strings.TrimSpace(v))
 	}
 	if name == ParamHorizon {
-		return "the skyline's altitude in degrees, the number alone, e.g. 2; or points azimuth:altitude, e.g. 0:2,90:8"
+		return config.HorizonPointsText
 	}
 	return ""
 }

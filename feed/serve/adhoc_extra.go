@@ -52,7 +52,7 @@ func (q *AdhocQuery) parseExtras(get getter, lim *adhocLimits) error {
 			}
 			if h < config.MinHorizon || h > config.MaxHorizon {
 				return &QueryError{Param: ParamHorizon, Value: v,
-					Msg: fmt.Sprintf("must be within %g..%g degrees (the skyline's altitude; 0 for a flat horizon)", config.MinHorizon, config.MaxHorizon)}
+					Msg: fmt.Sprintf("must be within %g..%g degrees (%s)", config.MinHorizon, config.MaxHorizon, config.HorizonText)}
 			}
 			q.Horizon = tenth(h)
 		}

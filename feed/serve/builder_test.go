@@ -487,3 +487,36 @@ func TestPreviewRepeatedHour(t *testing.T) {
 		}
 	}
 }
+
+// The two passes of a reading the clocks show twice have the same time and
+// end in /at.json; start_utc and end_utc, the instants as the events
+// listing's JSON writes them, tell them apart for a script. America/Havana
+// goes back from 00:59:59 CDT (UTC−4) to 00:00:00 CST (UTC−5) on
+// 7 November 2027, as zdump (tz database) lists it: 00:48 is 04:48 UTC,
+// then 05:48 UTC.
+func TestPreviewInstantsInUTC(t *testing.T) {
+	havana, err := time.LoadLocation("America/Havana")
+	if err != nil {
+		t.Fatal(err)
+	}
+	row, _ := time.Parse(time.DateOnly, "2027-11-07")
+	at := func(s string) time.Time { t, _ := time.Parse(time.RFC3339Nano, s); return t }
+	cal := &feed.Calendar{Entries: []feed.Entry{
+		{Kind: "moonset", Title: "Moonset", Date: row, Start: at("2027-11-07T04:48:12.3456Z")},
+		{Kind: "dark-window", Title: "Dark sky", Date: row, Start: at("2027-11-07T05:47:43.2104Z"), End: at("2027-11-07T10:21:00Z")},
+		{Kind: "moon-phases", Title: "Full Moon", Date: row, AllDay: true},
+	}}
+	b, err := json.Marshal(days(cal, AdhocQuery{Start: row, Days: 1, Location: havana}))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{
+		`"time":"00:48","when":"00:48 CDT","start_utc":"2027-11-07T04:48:12.346Z"`,
+		`"time":"00:48","end":"05:21","when":"00:48 CST–05:21","start_utc":"2027-11-07T05:47:43.210Z","end_utc":"2027-11-07T10:21:00.000Z"`,
+		`{"kind":"moon-phases","title":"Full Moon"}`, // an all-day entry has no instant
+	} {
+		if !strings.Contains(string(b), want) {
+			t.Errorf("/at.json's day lacks %s:\n%s", want, b)
+		}
+	}
+}

@@ -16,6 +16,7 @@ import (
 	"sync"
 	"time"
 
+	"heliocal/config"
 	"heliocal/feed/publish"
 	"heliocal/internal/schedule"
 )
@@ -358,31 +359,42 @@ func (s *Server) health() (health, int) {
 	return hb, code
 }
 
-// maxErrLine is the length beyond which errLine gives the number of joined
-// errors and the first, not each of them.
+// maxErrLine is the length beyond which errLine gives the number of
+// problems or joined errors and the first, not each of them.
 const maxErrLine = 1024
 
-// errLine is err on one line for /healthz. A joined error (publish's
-// refusal of every feed over service.max_feed_bytes, one line each in the
-// log) is given whole, its lines separated by "; ", or, when that is over
+// errLine is err on one line for /healthz. An error of several lines, each
+// a line of the log too (publish's refusal of every feed over
+// service.max_feed_bytes, joined; an invalid configuration's problems), is
+// given whole, its lines separated by "; ", or, when that is over
 // maxErrLine bytes, as its number of errors and the first: "40 feeds over
-// service.max_feed_bytes, the first: publish: feed a: …". Other errors
-// (a configuration's problems, listed in the log) keep their first line.
+// service.max_feed_bytes, the first: publish: feed a: …", "30 problems,
+// the first: heliocal.yaml: sites[0].latitude: 95: …". Other errors keep
+// their first line.
 func errLine(err error) string {
-	var joined interface{ Unwrap() []error }
-	if !errors.As(err, &joined) {
+	var (
+		joined  interface{ Unwrap() []error }
+		invalid *config.ValidationError
+		n       int
+		what    string
+	)
+	switch {
+	case errors.As(err, &joined):
+		errs := joined.Unwrap()
+		n, what = len(errs), "errors"
+		if !slices.ContainsFunc(errs, func(e error) bool { return !errors.As(e, new(*publish.OversizeError)) }) {
+			what = "feeds over service.max_feed_bytes"
+		}
+	case errors.As(err, &invalid):
+		n, what = len(invalid.Problems), "problems"
+	default:
 		return oneLine(err.Error())
 	}
 	lines := strings.FieldsFunc(err.Error(), func(r rune) bool { return r == '\n' || r == '\r' })
 	if one := strings.Join(lines, "; "); len(one) <= maxErrLine || len(lines) < 2 {
 		return one
 	}
-	errs := joined.Unwrap()
-	what := "errors"
-	if !slices.ContainsFunc(errs, func(e error) bool { return !errors.As(e, new(*publish.OversizeError)) }) {
-		what = "feeds over service.max_feed_bytes"
-	}
-	return fmt.Sprintf("%d %s, the first: %s", len(errs), what, lines[0])
+	return fmt.Sprintf("%d %s, the first: %s", n, what, lines[0])
 }
 
 // plain writes a one-line text/plain response that is never cached.

@@ -9,6 +9,7 @@ import (
 	"testing"
 	"time"
 
+	"heliocal/config"
 	"heliocal/feed/publish"
 )
 
@@ -144,6 +145,64 @@ func TestHealthNamesEveryOversizeFeed(t *testing.T) {
 			}
 			if hb.LastError != tc.want {
 				t.Errorf("last_error %q\nwant %q", hb.LastError, tc.want)
+			}
+		})
+	}
+}
+
+// A reload refused because the new configuration is invalid names every
+// problem config found on /healthz, in its reason, as the log lists them;
+// so many that the line would be long are counted, with the first.
+func TestHealthNamesEveryConfigProblem(t *testing.T) {
+	const site = "  - {id: s%d, name: S, latitude: %s, longitude: %s, timezone: Europe/Zurich}\n"
+	invalid := func(sites string) error {
+		_, err := config.Parse(strings.NewReader("sites:\n"+sites+"feeds:\n  - {id: f, site: s0, kinds: [sunrise]}\n"), "yaml")
+		var ve *config.ValidationError
+		if !errors.As(err, &ve) {
+			t.Fatalf("not a configuration's problems: %v", err)
+		}
+		ve.Source = "heliocal.yaml" // as config.Load names the file
+		return ve
+	}
+	var many strings.Builder
+	for i := range 30 {
+		fmt.Fprintf(&many, site, i, "95", "9.7")
+	}
+	two, thirty, one := invalid(fmt.Sprintf(site, 0, "95", "200")), invalid(many.String()), invalid(fmt.Sprintf(site, 0, "95", "9.7"))
+	// each problem as the log's line gives it, with the file's name
+	lines := strings.Split(two.Error(), "\n")
+	if len(lines) != 2 || !strings.HasPrefix(lines[0], "heliocal.yaml: sites[0].latitude: 95: must be within -90..90") || !strings.HasPrefix(lines[1], "heliocal.yaml: sites[0].longitude: 200: ") {
+		t.Fatalf("the problems of a latitude 95 and a longitude 200:\n%v", two)
+	}
+	lat, lon := lines[0], lines[1]
+	for _, tc := range []struct {
+		name string
+		err  error
+		want string
+	}{
+		{"two problems", two, lat + "; " + lon},
+		{"thirty problems", thirty, "30 problems, the first: " + lat},
+		{"one problem", one, lat},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			s, err := New(Options{Build: (&builder{b: testBundle("a")}).build, Logger: quiet(), Metrics: NewRegistry(),
+				Schedule: "15 3 * * *", ScheduleZone: time.UTC})
+			if err != nil {
+				t.Fatal(err)
+			}
+			clock := time.Date(2026, 12, 2, 3, 15, 0, 0, time.UTC)
+			s.now = func() time.Time { return clock }
+			if err := s.Refresh(t.Context()); err != nil {
+				t.Fatal(err)
+			}
+			s.RefuseReload(tc.err)
+			var hb health
+			if err := json.Unmarshal([]byte(body(t, get(t, s.Handler(), "GET", "/healthz"))), &hb); err != nil {
+				t.Fatal(err)
+			}
+			reason := "configuration reload refused at 2026-12-02T03:15:00Z, still serving the previous configuration: " + tc.want
+			if len(hb.Reasons) != 1 || hb.Reasons[0] != reason {
+				t.Errorf("reasons %q\nwant [%q]", hb.Reasons, reason)
 			}
 		})
 	}

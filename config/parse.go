@@ -1482,6 +1482,7 @@ var numberUnits = map[string][]string{
 	"days_ahead":    {"d", "day", "days"},
 	"low":           {"°", "deg", "degrees"},
 	"high":          {"°", "deg", "degrees"},
+	"horizon":       {"°", "deg", "degrees"}, // --horizon and an ad-hoc feed's horizon: the key's own is any
 }
 
 // byteUnits are the units of a size written after its number, in bytes
@@ -1496,7 +1497,8 @@ var byteUnits = map[string]float64{"b": 1, "bytes": 1, "kb": 1e3, "mb": 1e6}
 // degrees for a latitude or longitude in degrees and minutes; for words
 // ("lots"), which have no number to keep, what the key's number is, or "".
 // The flags and the ad-hoc feeds' parameters that give the same numbers
-// (--lat, lat) take their hints from here too.
+// (--lat, lat) take their hints from here too, and an ad-hoc feed's horizon
+// ("horizon", whose hints name the skyline points it may be as well).
 func NumberTextHint(key, x string) string {
 	num, unit, f, err := numberAndUnit(x)
 	switch {
@@ -1518,7 +1520,11 @@ func NumberTextHint(key, x string) string {
 	}
 	for _, u := range numberUnits[key] {
 		if unit == u {
-			return "write the number alone, without the unit: " + num
+			hint := "write the number alone, without the unit: " + num
+			if key == "horizon" { // which may be skyline points too
+				hint += "; " + horizonPoints
+			}
+			return hint
 		}
 	}
 	if key == "days_back" || key == "days_ahead" {
@@ -1553,7 +1559,8 @@ const (
 // horizon, --horizon and an ad-hoc feed's horizon say it in these words.
 const (
 	HorizonText       = "the altitude of the visible skyline in degrees: 0 for a flat horizon, 2 behind low hills"
-	HorizonPointsText = HorizonText + "; or skyline points azimuth:altitude, e.g. 0:2,90:8,180:1"
+	HorizonPointsText = HorizonText + "; " + horizonPoints
+	horizonPoints     = "or skyline points azimuth:altitude, e.g. 0:2,90:8,180:1"
 )
 
 // coordinateText is LatitudeText and LongitudeText by key.
@@ -1566,6 +1573,7 @@ var numberWords = map[string]string{
 	"temperature_c": "degrees Celsius, e.g. -5",
 	"low":           "the Sun's altitude in degrees, e.g. -4",
 	"high":          "the Sun's altitude in degrees, e.g. 6",
+	"horizon":       HorizonPointsText,
 }
 
 // IlluminationText says what a max_illumination (--max-illumination) is.

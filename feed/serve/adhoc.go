@@ -354,22 +354,18 @@ func parseFloat(name, v string) (float64, error) {
 }
 
 // numberHint says how to write the number of a parameter, v, that is not
-// one ("2°", "120 m", "33°27′S"): that of a place in the words of the
-// configuration's hint for its key (config.NumberTextHint), a horizon's in
-// those of --horizon (config.HorizonPointsText); "" for a parameter without
-// a hint.
+// one ("2°", "120 m", "33°27′S"): that of a place or a horizon in the words
+// of the configuration's hint for its key (config.NumberTextHint); "" for a
+// parameter without a hint.
 func numberHint(name, v string) string {
 	if key, ok := paramKeys[name]; ok {
 		return config.NumberTextHint(key, strings.TrimSpace(v))
-	}
-	if name == ParamHorizon {
-		return config.HorizonPointsText
 	}
 	return ""
 }
 
 // paramKeys are the configuration's keys of the place's parameters.
-var paramKeys = map[string]string{ParamLatitude: "latitude", ParamLongitude: "longitude", ParamElevation: "elevation"}
+var paramKeys = map[string]string{ParamLatitude: "latitude", ParamLongitude: "longitude", ParamElevation: "elevation", ParamHorizon: "horizon"}
 
 // parseCoord reads the coordinate name, within -limit..limit, whose hint
 // out of range is hint.

@@ -58,7 +58,7 @@ func TestAdhocBadParameters(t *testing.T) {
 		{ok + "&name=a%00b", "name", "control"},
 		{ok + "&horizon=46", "horizon", `"46": must be within -5..45 degrees (the altitude of the visible skyline in degrees: 0 for a flat horizon, 2 behind low hills)`},
 		{ok + "&horizon=-6", "horizon", `"-6"`},
-		{ok + "&horizon=hill", "horizon", `"hill"`},
+		{ok + "&horizon=hill", "horizon", `"hill": not a decimal number (the altitude of the visible skyline in degrees: 0 for a flat horizon, 2 behind low hills; or skyline points azimuth:altitude, e.g. 0:2,90:8,180:1)`},
 		{ok + "&horizon=0:2,90:x", "horizon", `"0:2,90:x"`},
 		{ok + "&horizon=0:2,90:60", "horizon", `"0:2,90:60": point 2 (90:60): altitude must be within -5..45 degrees (`},
 		{ok + "&horizon=0:2,361:4", "horizon", `point 2 (361:4): azimuth must be within 0..360`},
@@ -125,7 +125,8 @@ func TestAdhocBadParameters(t *testing.T) {
 		{ok + "&elev=high", "elev", `"high"`},
 		// a number written with its unit or in degrees and minutes: the hint
 		// says how to write it (the value itself is checked above)
-		{ok + "&horizon=2%C2%B0", "horizon", "not a decimal number (the altitude of the visible skyline in degrees: 0 for a flat horizon, 2 behind low hills; or skyline points azimuth:altitude, e.g. 0:2,90:8,180:1)"},
+		{ok + "&horizon=2%C2%B0", "horizon", "not a decimal number (write the number alone, without the unit: 2; or skyline points azimuth:altitude, e.g. 0:2,90:8,180:1)"},
+		{ok + "&horizon=-1.5%20deg", "horizon", "not a decimal number (write the number alone, without the unit: -1.5; or skyline points azimuth:altitude, e.g. 0:2,90:8,180:1)"},
 		{ok + "&elev=120%20m", "elev", "not a decimal number (write the number alone, without the unit: 120)"},
 		{"lat=33%C2%B027%E2%80%B2S&lon=13&tz=UTC&kinds=sunrise", "lat", "not a decimal number (write decimal degrees, north positive, south negative, e.g. -42.88 for 42°52′48″S)"},
 		{ok + "&utc=maybe", "utc", `"maybe"`},

@@ -122,23 +122,11 @@ func TestHealthNamesEveryOversizeFeed(t *testing.T) {
 			"10 errors, the first: publish: feed f0: " + over},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
-			s, err := New(Options{Build: (&builder{b: testBundle("a")}).build, Logger: quiet(), Metrics: NewRegistry(),
-				Schedule: "15 3 * * *", ScheduleZone: time.UTC})
-			if err != nil {
-				t.Fatal(err)
-			}
-			clock := time.Date(2026, 12, 2, 3, 15, 0, 0, time.UTC)
-			s.now = func() time.Time { return clock }
-			if err := s.Refresh(t.Context()); err != nil {
-				t.Fatal(err)
-			}
+			s := builtAt(t, time.Date(2026, 12, 2, 3, 15, 0, 0, time.UTC))
 			if s.Reload(t.Context(), func(context.Context) (*publish.Bundle, error) { return nil, tc.err }) == nil {
 				t.Fatal("a failing reload succeeded")
 			}
-			var hb health
-			if err := json.Unmarshal([]byte(body(t, get(t, s.Handler(), "GET", "/healthz"))), &hb); err != nil {
-				t.Fatal(err)
-			}
+			hb := healthOf(t, s)
 			reason := "configuration reload at 2026-12-02T03:15:00Z failed to build, still serving the previous configuration: " + tc.want
 			if len(hb.Reasons) != 1 || hb.Reasons[0] != reason {
 				t.Errorf("reasons %q\nwant [%q]", hb.Reasons, reason)
@@ -185,25 +173,39 @@ func TestHealthNamesEveryConfigProblem(t *testing.T) {
 		{"one problem", one, lat},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
-			s, err := New(Options{Build: (&builder{b: testBundle("a")}).build, Logger: quiet(), Metrics: NewRegistry(),
-				Schedule: "15 3 * * *", ScheduleZone: time.UTC})
-			if err != nil {
-				t.Fatal(err)
-			}
-			clock := time.Date(2026, 12, 2, 3, 15, 0, 0, time.UTC)
-			s.now = func() time.Time { return clock }
-			if err := s.Refresh(t.Context()); err != nil {
-				t.Fatal(err)
-			}
+			s := builtAt(t, time.Date(2026, 12, 2, 3, 15, 0, 0, time.UTC))
 			s.RefuseReload(tc.err)
-			var hb health
-			if err := json.Unmarshal([]byte(body(t, get(t, s.Handler(), "GET", "/healthz"))), &hb); err != nil {
-				t.Fatal(err)
-			}
+			hb := healthOf(t, s)
 			reason := "configuration reload refused at 2026-12-02T03:15:00Z, still serving the previous configuration: " + tc.want
 			if len(hb.Reasons) != 1 || hb.Reasons[0] != reason {
 				t.Errorf("reasons %q\nwant [%q]", hb.Reasons, reason)
 			}
 		})
 	}
+}
+
+// builtAt is a server refreshed daily at 03:15 UTC whose clock stands at
+// now, after its first build.
+func builtAt(t *testing.T, now time.Time) *Server {
+	t.Helper()
+	s, err := New(Options{Build: (&builder{b: testBundle("a")}).build, Logger: quiet(), Metrics: NewRegistry(),
+		Schedule: "15 3 * * *", ScheduleZone: time.UTC})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s.now = func() time.Time { return now }
+	if err := s.Refresh(t.Context()); err != nil {
+		t.Fatal(err)
+	}
+	return s
+}
+
+// healthOf is the body of s's /healthz.
+func healthOf(t *testing.T, s *Server) health {
+	t.Helper()
+	var hb health
+	if err := json.Unmarshal([]byte(body(t, get(t, s.Handler(), "GET", "/healthz"))), &hb); err != nil {
+		t.Fatal(err)
+	}
+	return hb
 }

@@ -731,10 +731,11 @@ func clockChange(d time.Time, loc *time.Location) string {
 // the first pass, or "00:48 CST", the second (America/Havana, 7 November
 // 2027).
 func clockOn(t time.Time, row string) string {
+	layout := "15:04"
 	if t.Format(time.DateOnly) != row {
-		return t.Format("Mon 15:04") + twiceLabel(t)
+		layout = "Mon 15:04"
 	}
-	return t.Format("15:04") + twiceLabel(t)
+	return t.Format(layout) + twiceLabel(t)
 }
 
 // twiceLabel is what follows the local time t as clockOn writes it: its

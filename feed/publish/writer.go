@@ -346,13 +346,9 @@ func (e *DiskFullError) Error() string {
 
 // Reason is what the system said, without the temporary file's path: "no
 // space left on device", "disk quota exceeded".
-func (e *DiskFullError) Reason() string { return systemWords(e.Err) }
+func (e *DiskFullError) Reason() string { return systemErr(e.Err).Error() }
 
 func (e *DiskFullError) Unwrap() error { return e.Err }
-
-// systemWords is what the system said of err, without the path of a
-// *fs.PathError ("no space left on device").
-func systemWords(err error) string { return systemErr(err).Error() }
 
 // systemErr is the system's error inside err: a *fs.PathError's Err (an
 // errno), without the path; err itself when it holds none.

@@ -338,13 +338,7 @@ func TestFailedCommitPutsBackPublishedFiles(t *testing.T) {
 				if n++; n != i+1 {
 					return
 				}
-				tmp, err := filepath.Glob(filepath.Join(dir, "."+failing+".tmp-[0-9]*"))
-				if err != nil || len(tmp) != 1 {
-					t.Fatalf("temporary file of %s: %v %v", failing, tmp, err)
-				}
-				if err := os.Remove(tmp[0]); err != nil {
-					t.Fatal(err)
-				}
+				removeTemp(t, dir, failing)
 			}}
 			_, err := Publish(context.Background(), Calendars(testCalendars(t, " (revised)")...), testOptions(), w)
 			if !errors.Is(err, fs.ErrNotExist) {
@@ -579,13 +573,7 @@ func TestFailedCommitWithoutLinksSaysWhatStaysNew(t *testing.T) {
 		}
 		if name, ok := strings.CutPrefix(what, "rename "); ok {
 			if renames++; name == IndexName {
-				tmp, err := filepath.Glob(filepath.Join(dir, "."+name+".tmp-[0-9]*"))
-				if err != nil || len(tmp) != 1 {
-					t.Fatalf("temporary file of %s: %v %v", name, tmp, err)
-				}
-				if err := os.Remove(tmp[0]); err != nil {
-					t.Fatal(err)
-				}
+				removeTemp(t, dir, name)
 			}
 		}
 	}}
@@ -644,5 +632,18 @@ func TestInterruptedPublishSaysNothingChanged(t *testing.T) {
 	}
 	if now := snapshot(t, dir); !maps.EqualFunc(now, old, bytes.Equal) {
 		t.Errorf("the published files changed: %v, were %v", keys(now), keys(old))
+	}
+}
+
+// removeTemp removes the one temporary file of name in dir, staged for the
+// commit, so that its rename fails.
+func removeTemp(t *testing.T, dir, name string) {
+	t.Helper()
+	tmp, err := filepath.Glob(filepath.Join(dir, "."+name+".tmp-[0-9]*"))
+	if err != nil || len(tmp) != 1 {
+		t.Fatalf("temporary file of %s: %v %v", name, tmp, err)
+	}
+	if err := os.Remove(tmp[0]); err != nil {
+		t.Fatal(err)
 	}
 }

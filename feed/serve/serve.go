@@ -363,12 +363,10 @@ func (s *Server) Reload(ctx context.Context, build BuildFunc) error {
 	if build == nil {
 		return errors.New("serve: Reload: nil build function")
 	}
-	err := s.refresh(ctx, triggerReload, build)
-	if err != nil && stopped(ctx, err) {
-		return err // shutting down: not a refused reload
-	}
-	if err != nil {
-		s.refuseReload(err, true)
+	if err := s.refresh(ctx, triggerReload, build); err != nil {
+		if !stopped(ctx, err) { // shutting down is not a refused reload
+			s.refuseReload(err, true)
+		}
 		return err
 	}
 	s.healthMu.Lock()

@@ -96,14 +96,8 @@ func unwrapNear(a, ref float64) float64 {
 // its node: |sin F| > 0.40, F being the Moon's argument of latitude (Meeus
 // ch. 54 gives 0.36 as the limit for any eclipse).
 func syzygies(from, to time.Time, kind PhaseKind) ([]float64, error) {
-	if err := checkTime("eclipses from", from); err != nil {
+	if err := checkSpan("eclipses", from, to); err != nil {
 		return nil, err
-	}
-	if err := checkRangeEnd("eclipses to", to); err != nil {
-		return nil, err
-	}
-	if to.Before(from) {
-		return nil, invalidf("astro: eclipses: to %s is before from %s", to.UTC().Format(time.RFC3339), from.UTC().Format(time.RFC3339))
 	}
 	lo := math.Max(unixSeconds(from)-secondsPerDay, minUnix+eclipseHalfWindow)
 	hi := math.Min(unixSeconds(to)+secondsPerDay, maxUnix-eclipseHalfWindow)

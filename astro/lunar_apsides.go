@@ -83,14 +83,8 @@ func trueLunarApsisJDE(jde0 float64, perigee bool) (jde, dist float64) {
 // MinTime..MaxTime and an error matching ErrInvalidInput when to is before
 // from.
 func LunarApsides(from, to time.Time) ([]LunarApsis, error) {
-	if err := checkTime("lunar apsides from", from); err != nil {
+	if err := checkSpan("lunar apsides", from, to); err != nil {
 		return nil, err
-	}
-	if err := checkRangeEnd("lunar apsides to", to); err != nil {
-		return nil, err
-	}
-	if to.Before(from) {
-		return nil, invalidf("astro: lunar apsides: to %s is before from %s", to.UTC().Format(time.RFC3339), from.UTC().Format(time.RFC3339))
 	}
 	fromSec, toSec := unixSeconds(from), unixSeconds(to)
 	k := math.Floor((unixToJD(fromSec)-2451534.6698)/27.55454989*2)/2 - 0.5

@@ -150,14 +150,8 @@ func truePhaseJDE(jde0, target float64) float64 {
 // MinTime..MaxTime, and an error matching ErrInvalidInput when to is before
 // from.
 func MoonPhases(from, to time.Time) ([]Phase, error) {
-	if err := checkTime("moon phases from", from); err != nil {
+	if err := checkSpan("moon phases", from, to); err != nil {
 		return nil, err
-	}
-	if err := checkRangeEnd("moon phases to", to); err != nil {
-		return nil, err
-	}
-	if to.Before(from) {
-		return nil, invalidf("astro: moon phases: to %s is before from %s", to.UTC().Format(time.RFC3339), from.UTC().Format(time.RFC3339))
 	}
 	fromSec, toSec := unixSeconds(from), unixSeconds(to)
 	// The true phase is within about 0.6 day of the mean phase; start one
@@ -188,4 +182,21 @@ func checkRangeEnd(what string, t time.Time) error {
 		return nil
 	}
 	return checkTime(what, t)
+}
+
+// checkSpan checks the span [from, to) of a search over instants (what: its
+// name in messages, e.g. "moon phases"): from within the supported range,
+// to within it or at its end (checkRangeEnd), and to not before from (an
+// error matching ErrInvalidInput).
+func checkSpan(what string, from, to time.Time) error {
+	if err := checkTime(what+" from", from); err != nil {
+		return err
+	}
+	if err := checkRangeEnd(what+" to", to); err != nil {
+		return err
+	}
+	if to.Before(from) {
+		return invalidf("astro: %s: to %s is before from %s", what, to.UTC().Format(time.RFC3339), from.UTC().Format(time.RFC3339))
+	}
+	return nil
 }

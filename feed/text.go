@@ -1580,15 +1580,19 @@ func NotReachedText(n Note) string {
 	if n.Last.Equal(from) {
 		dates = "on this date"
 	}
+	sun := ""
 	switch {
 	case n.State != astro.AlwaysAbove && n.DayLength <= 0 && n.DirectSun:
-		return fmt.Sprintf("%s %s (the Sun stays behind the skyline %s)", what, when, dates)
+		sun = "stays behind the skyline"
 	case n.State != astro.AlwaysAbove && n.DayLength <= 0:
-		return fmt.Sprintf("%s %s (the Sun does not rise %s)", what, when, dates)
+		sun = "does not rise"
 	case n.State == astro.AlwaysAbove && n.DayLength >= 24*time.Hour && n.DirectSun:
-		return fmt.Sprintf("%s %s (the Sun stays over the skyline all day %s)", what, when, dates)
+		sun = "stays over the skyline all day"
 	case n.State == astro.AlwaysAbove && n.DayLength >= 24*time.Hour:
-		return fmt.Sprintf("%s %s (the Sun does not set %s)", what, when, dates)
+		sun = "does not set"
+	}
+	if sun != "" {
+		return fmt.Sprintf("%s %s (the Sun %s %s)", what, when, sun, dates)
 	}
 	out := ""
 	switch n.ExtremeLeftOut {

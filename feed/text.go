@@ -1568,8 +1568,8 @@ func NotReachedText(n Note) string {
 	if n.DirectSun {
 		what = "Direct Sun"
 	}
-	// to the minute a longest day of 13 h 59 min 40 s would read "14 h 00
-	// min" beside "never reaches 14 h": it is then given to the second
+	// to the minute a longest day of 13 h 59 min 40 s would read "14 h"
+	// beside "never reaches 14 h": it is then given to the second
 	length := hm(n.DayLength)
 	if length == hm(n.Kind.DayLength) {
 		length = Length(n.DayLength, time.Second)

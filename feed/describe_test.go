@@ -701,10 +701,11 @@ func TestRiseSetMeaningFollowsSite(t *testing.T) {
 
 // A photoperiod date on which the Sun stops setting or rising says so, not
 // "up for 24 h …, sunrise to sunset" or "up for 0 min". Tromsø, 69.65° N
-// 18.96° E: the midnight Sun from about 20 May and the polar night from
-// about 27 November (common knowledge of the place, from memory); heliocal
-// has the first dates without a sunset and without a sunrise on 19 May and
-// 28 November 2027.
+// 18.96° E, Europe/Oslo: PyEphem 4.1.4 (upper limb, 34′ refraction,
+// pressure 0, sea level) has the first local dates with neither a sunrise
+// nor a sunset on 19 May 2027 (the Sun stays up; 17 May's sunset falls
+// after midnight) and on 28 November 2027 (it stays down; 27 November
+// still has both).
 func TestPhotoperiodSaysSunDoesNotSetOrRise(t *testing.T) {
 	s := site(t, "tromso", 69.65, 18.96, "Europe/Oslo")
 	sk := sky(t, "2027-01-01", "2027-12-31")

@@ -46,8 +46,9 @@ func TestNonFiniteInput(t *testing.T) {
 	if got := TimeFromJulianDay(0).Format("2006-01-02 15:04"); got != "-4713-11-24 12:00" {
 		t.Errorf("TimeFromJulianDay(0) = %s, want -4713-11-24 12:00", got)
 	}
-	// Any finite azimuth is reduced to the circle (common practice: 22.5°
-	// per point).
+	// Any finite azimuth is reduced to the circle by whole turns of 360°:
+	// 450 − 360 = 90 (east), −90 + 360 = 270 (west), 720 − 2·360 = 0
+	// (north), −3510 + 10·360 = 90 (east).
 	for az, want := range map[float64]string{450: "east", -90: "west", 720: "north", -3510: "east"} {
 		if got := CompassPoint(az); got != want {
 			t.Errorf("CompassPoint(%g) = %q, want %q", az, got, want)

@@ -318,9 +318,9 @@ def print_worst(alld, worst, width, count_width):
             width, k, count_width, len(v), v[len(v) // 2], v[min(len(v) - 1, int(len(v) * 0.99))], d, name, when))
 
 
-def heliocal(binary, site, start, end, kinds, extra=()):
+def heliocal(binary, site, start, end, kinds, extra=(), tz="UTC"):
     cmd = [binary, "events", "--lat", str(site.lat), "--lon", str(site.lon), "--elev", str(site.elev),
-           "--tz", "UTC", "--from", start, "--to", end, "--kinds", ",".join(kinds), "--format", "json", *extra]
+           "--tz", tz, "--from", start, "--to", end, "--kinds", ",".join(kinds), "--format", "json", *extra]
     p = subprocess.run(cmd, capture_output=True, text=True)
     if p.returncode != 0:
         raise RuntimeError("%s: %s" % (" ".join(cmd), p.stderr.strip()))
@@ -467,19 +467,18 @@ def audit(binary, site, start, end, moon=True, year_kinds=True):
 
 
 def _load_erfa_seasons():
-    """ERFA's instants of the Sun's apparent longitude 0, 45, ..., 315
-    deg, 1900-2100 (TT), from the committed cross-check table."""
+    """ERFA's instants (TT) of the Sun's apparent longitude 0, 45, ..., 315
+    deg, 1900-2100, as (longitude, instant), from the committed cross-check
+    table testdata/reference/crosscheck-seasons-erfa.csv."""
     here = os.path.dirname(os.path.abspath(__file__))
     path = os.path.join(here, "..", "..", "testdata", "reference", "crosscheck-seasons-erfa.csv")
-    out = []
     with open(path) as f:
-        for r in csv.DictReader(f):
-            if r["kind"].startswith("longitude_"):
-                out.append(to_dt(float(r["tt_jd"]) - 2415020.0))
-    return sorted(out)
+        return [(int(r["kind"][len("longitude_"):]), to_dt(float(r["tt_jd"]) - 2415020.0))
+                for r in csv.DictReader(f) if r["kind"].startswith("longitude_")]
 
 
-ERFA_SEASONS = _load_erfa_seasons()
+ERFA_SEASONS_BY_LON = _load_erfa_seasons()
+ERFA_SEASONS = sorted(t for _, t in ERFA_SEASONS_BY_LON)
 
 
 def tt_of(dt):

@@ -54,8 +54,8 @@ import ephem
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
 import audit  # noqa: E402
-from audit import (SUN_TOL, MOON_TOL, Site, Sky, crossings,  # noqa: E402
-                   match, parse, print_worst, tally, to_dt, to_ephem, tt_events, tt_of, ecl_lon, ut1_minus_utc)
+from audit import (SUN_TOL, MOON_TOL, Site, Sky, crossings, heliocal,  # noqa: E402
+                   match, parse, print_worst, tally, to_ephem, tt_events, tt_of, ecl_lon, ut1_minus_utc)
 
 UTC = datetime.timezone.utc
 
@@ -123,15 +123,6 @@ DAILY = list(SUN_KINDS) + ["solar-noon", "moonrise", "moonset", "moon-transit", 
                            "dark-window"]
 
 
-def run(binary, site, tz, start, end, kinds):
-    cmd = [binary, "events", "--lat", str(site.lat), "--lon", str(site.lon), "--elev", str(site.elev),
-           "--tz", tz, "--from", start, "--to", end, "--kinds", ",".join(kinds), "--format", "json"]
-    p = audit.subprocess.run(cmd, capture_output=True, text=True)
-    if p.returncode != 0:
-        raise RuntimeError("%s: %s" % (" ".join(cmd), p.stderr.strip()))
-    return audit.json.loads(p.stdout)
-
-
 def local_midnight(date, zone):
     """The first instant of a local date in UTC: a date whose midnight the
     clocks skip starts at the change (fold 0 takes the offset before it)."""
@@ -188,7 +179,7 @@ def check(binary, place, start, end):
     altitudes = sorted(set([-3.0, 10.0] + [a for a in near_top if -89 < a < 89]))
     kinds = (list(SUN_KINDS) + ["solar-noon"] + ["sun-altitude:%g" % a for a in altitudes] + list(BANDS) +
              list(MOON_KINDS) + ["moon-transit", "dark-window"] + list(PHASES) + list(SEASONS))
-    doc = run(binary, site, tzname, before, end, kinds)
+    doc = heliocal(binary, site, before, end, kinds, tz=tzname)
     evs, notes = doc["events"], doc.get("notes", [])
 
     # local dates: an event's date is the local date of its start (a dark
@@ -288,17 +279,7 @@ def check(binary, place, start, end):
     return name, lat, lon, elev, tzname, top, results, missing, thr
 
 
-def _load_erfa_seasons():
-    """ERFA's instants (TT) of the Sun's apparent longitude 0, 90, 180 and
-    270 deg, 1900-2100, from testdata/reference/crosscheck-seasons-erfa.csv."""
-    here = os.path.dirname(os.path.abspath(__file__))
-    path = os.path.join(here, "..", "..", "testdata", "reference", "crosscheck-seasons-erfa.csv")
-    with open(path) as f:
-        return [(int(r["kind"][len("longitude_"):]), to_dt(float(r["tt_jd"]) - 2415020.0))
-                for r in csv.DictReader(f) if r["kind"].startswith("longitude_")]
-
-
-ERFA_SEASONS = _load_erfa_seasons()
+ERFA_SEASONS = audit.ERFA_SEASONS_BY_LON
 
 
 class Erfa:
@@ -370,7 +351,7 @@ def eclipses(binary):
     for place in sorted({r["site"] for r in rows}):
         rs = [r for r in rows if r["site"] == place]
         lat, lon, elev = float(rs[0]["lat"]), float(rs[0]["lon"]), float(rs[0]["elev_m"])
-        doc = run(binary, Site(place, lat, lon, elev), "UTC", "2026-01-01", "2035-12-31", ["solar-eclipse", "lunar-eclipse"])
+        doc = heliocal(binary, Site(place, lat, lon, elev), "2026-01-01", "2035-12-31", ["solar-eclipse", "lunar-eclipse"])
         hel = [e for e in doc["events"]]
         used = set()
         for r in rs:

@@ -298,12 +298,12 @@ func (s *Scheduler) run() {
 	s.mu.Lock()
 	s.lastDone, s.lastErr = time.Now(), err
 	s.mu.Unlock()
-	next := s.Next()
 	if err != nil && ctx.Err() != nil && errors.Is(err, ctx.Err()) {
 		// stopped by Stop (the server is shutting down), not failed
 		s.log.Info("scheduled refresh stopped: shutting down", "duration", d)
 		return
 	}
+	next := s.Next()
 	if err != nil {
 		s.log.Error("scheduled refresh failed", "err", err, "duration", d, "next_run", next)
 		return

@@ -215,15 +215,7 @@ func TestServeReloadFileRemoved(t *testing.T) {
 		t.Fatal(err)
 	}
 	addr, logs, stop := serveInBackground(t, "--config", path, "--access-log=false")
-	fetch := func(p string) (int, string) {
-		resp, err := http.Get("http://" + addr + p)
-		if err != nil {
-			return 0, ""
-		}
-		defer resp.Body.Close()
-		b, _ := io.ReadAll(resp.Body)
-		return resp.StatusCode, string(b)
-	}
+	fetch := fetcher(addr)
 	waitFor(t, logs, "the first build", func() bool { code, _ := fetch("/healthz"); return code == http.StatusOK })
 	if err := os.Rename(path, path+".moved"); err != nil {
 		t.Fatal(err)

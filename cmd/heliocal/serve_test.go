@@ -31,6 +31,20 @@ func waitFor(t *testing.T, logs *lockedBuffer, what string, ok func() bool) {
 	}
 }
 
+// fetcher returns a GET of a path on the server at addr: the status and
+// the body, or 0 and "" when the server does not answer (yet).
+func fetcher(addr string) func(path string) (int, string) {
+	return func(path string) (int, string) {
+		resp, err := http.Get("http://" + addr + path)
+		if err != nil {
+			return 0, ""
+		}
+		defer resp.Body.Close()
+		b, _ := io.ReadAll(resp.Body)
+		return resp.StatusCode, string(b)
+	}
+}
+
 // freePort returns a loopback address that was free a moment ago.
 func freePort(t *testing.T) string {
 	t.Helper()
@@ -226,16 +240,7 @@ func TestServeReloadRefusesInvalidConfig(t *testing.T) {
 		t.Fatal(err)
 	}
 	addr, logs, stop := serveInBackground(t, "--config", path, "--access-log=false")
-	base := "http://" + addr
-	fetch := func(p string) (int, string) {
-		resp, err := http.Get(base + p)
-		if err != nil {
-			return 0, ""
-		}
-		defer resp.Body.Close()
-		b, _ := io.ReadAll(resp.Body)
-		return resp.StatusCode, string(b)
-	}
+	fetch := fetcher(addr)
 	waitFor(t, logs, "the first build", func() bool { code, _ := fetch("/healthz"); return code == http.StatusOK })
 	_, before := fetch("/feeds/fernhollow-sun.ics")
 

@@ -22,6 +22,10 @@ var regions = []struct {
 	{-1.3, 36.8, "Africa/Nairobi"},
 }
 
+// MaxSites is the most sites tools/fleet writes; TestPlaceInRangeAndDistinct
+// checks every one of them.
+const MaxSites = 100000
+
 // jitterRounds is how many sites of a region step away from its point
 // before the steps start again, a little shifted: 400 steps of 0.017° keep
 // every site within 6.8° of its region's point (Auckland's 173° E stays

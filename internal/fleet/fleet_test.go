@@ -38,11 +38,11 @@ func TestYAMLLargeFleetIsValid(t *testing.T) {
 	}
 }
 
-// Every site tools/fleet can write (it takes up to 100,000) has a latitude
+// Every site tools/fleet can write (it takes up to MaxSites) has a latitude
 // and a longitude in range, and no two sites stand on the same point as
 // the configuration writes it (four decimals).
 func TestPlaceInRangeAndDistinct(t *testing.T) {
-	const most = 100000
+	const most = MaxSites
 	seen := make(map[string]int, most)
 	for i := range most {
 		lat, lon, _ := place(i)

@@ -17,8 +17,8 @@ import (
 func main() {
 	n := flag.Int("sites", 1000, "number of sites, one feed each")
 	flag.Parse()
-	if *n < 1 || *n > 100000 {
-		fmt.Fprintf(os.Stderr, "fleet: -sites %d: give a number from 1 to 100000\n", *n)
+	if *n < 1 || *n > fleet.MaxSites {
+		fmt.Fprintf(os.Stderr, "fleet: -sites %d: give a number from 1 to %d\n", *n, fleet.MaxSites)
 		os.Exit(2)
 	}
 	fmt.Print(fleet.YAML(*n))

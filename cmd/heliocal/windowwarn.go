@@ -110,19 +110,17 @@ func planDatesFilteredOut(f *config.Feed, rules []config.DateRule) []string {
 	var out []string
 	for i, p := range f.Plans {
 		r := rules[i]
-		months := config.NewDateFilter(nil, p.Months, nil)
-		weekdays := config.NewDateFilter(p.Weekdays, nil, nil)
 		entry := fmt.Sprintf("plan %q", p.Title)
 		switch r.Type {
 		case config.RuleOnce:
 			out = append(out, dateLeftOut(f.ID, entry, r.Date, p.Months, p.Weekdays)...)
 		case config.RuleWeekly, config.RuleWeekdayOf:
-			if !weekdays.Allows(dateOnWeekday(r.Weekday)) {
+			if !config.NewDateFilter(p.Weekdays, nil, nil).Allows(dateOnWeekday(r.Weekday)) {
 				out = append(out, fmt.Sprintf("feed %q: %s: its dates (%s) are %ss, not in its weekdays (%s): it will never be published",
 					f.ID, entry, p.Date, r.Weekday, strings.Join(p.Weekdays, ", ")))
 			}
 		case config.RuleYearly:
-			if !months.Allows(time.Date(2000, r.Month, 1, 0, 0, 0, 0, time.UTC)) {
+			if !config.NewDateFilter(nil, p.Months, nil).Allows(time.Date(2000, r.Month, 1, 0, 0, 0, 0, time.UTC)) {
 				out = append(out, fmt.Sprintf("feed %q: %s: its dates (%s) are in %s, not in its months (%s): it will never be published",
 					f.ID, entry, p.Date, r.Month, strings.Join(p.Months, ", ")))
 			}

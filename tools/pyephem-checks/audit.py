@@ -373,6 +373,21 @@ def match(hel, ref, tol, window, label, out, missing, rate=None):
             missing.append((label, "missing in heliocal (PyEphem %s)" % r.isoformat(), ""))
 
 
+def match_moon(sky, evs, hmoon, e0, e1, window, results, missing):
+    """Matches heliocal's moonrise and moonset (evs) with PyEphem's crossings
+    of the altitude hmoon over e0..e1, and its Moon transits with PyEphem's;
+    returns the crossings ({hmoon: [(instant, direction), ...]})."""
+    mc = crossings(sky.moon_alt, e0, e1, 5 * ephem.minute, [hmoon])
+    for kind, direction in MOON_KINDS.items():
+        ref = [sky.shift(t) for t, d in mc[hmoon] if d == direction]
+        hel = [parse(e["start"]) for e in evs if e["kind"] == kind]
+        match(hel, ref, MOON_TOL, window, kind, results, missing, sky.rate(sky.moon_alt))
+    ref = [sky.shift(tr) for tr in sky.transits(sky.moon, e0, e1)]
+    hel = [parse(e["start"]) for e in evs if e["kind"] == "moon-transit"]
+    match(hel, ref, MOON_TOL, window, "moon-transit", results, missing)
+    return mc
+
+
 def audit(binary, site, start, end, moon=True, year_kinds=True):
     d0 = datetime.datetime.strptime(start, "%Y-%m-%d").replace(tzinfo=datetime.timezone.utc)
     d1 = datetime.datetime.strptime(end, "%Y-%m-%d").replace(tzinfo=datetime.timezone.utc) + datetime.timedelta(days=1)
@@ -435,14 +450,7 @@ def audit(binary, site, start, end, moon=True, year_kinds=True):
                                 s.isoformat()))
     if moon:
         hmoon = -34 / 60 - site.dip()
-        mc = crossings(moon_alt, e0, e1, 5 * ephem.minute, [hmoon])
-        for kind, direction in MOON_KINDS.items():
-            ref = [shift(t) for t, d in mc[hmoon] if d == direction]
-            hel = [parse(e["start"]) for e in evs if e["kind"] == kind]
-            match(hel, ref, MOON_TOL, window, kind, results, missing, rate(moon_alt))
-        ref = [shift(tr) for tr in sky.transits(sky.moon, e0, e1)]
-        hel = [parse(e["start"]) for e in evs if e["kind"] == "moon-transit"]
-        match(hel, ref, MOON_TOL, window, "moon-transit", results, missing)
+        match_moon(sky, evs, hmoon, e0, e1, window, results, missing)
         for kind, target in PHASES.items():
             ref = tt_events(lambda d: (ecl_lon(ephem.Moon(), d) - ecl_lon(ephem.Sun(), d)), target, e0, e1, 0.5)
             hel = [tt_of(parse(e["start"])) for e in evs if e["kind"] == kind]

@@ -54,7 +54,7 @@ import ephem
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
 import audit  # noqa: E402
-from audit import (SUN_TOL, MOON_TOL, Site, Sky, crossings, heliocal,  # noqa: E402
+from audit import (SUN_TOL, MOON_TOL, Site, Sky, crossings, heliocal, match_moon,  # noqa: E402
                    match, parse, print_worst, tally, to_ephem, tt_events, tt_of, ecl_lon, ut1_minus_utc)
 
 UTC = datetime.timezone.utc
@@ -240,14 +240,7 @@ def check(binary, place, start, end):
     hel = [parse(e["start"]) for e in evs if e["kind"] == "solar-noon"]
     match(hel, ref, SUN_TOL, window, "solar-noon", results, missing)
 
-    mc = crossings(moon_alt, e0, e1, 5 * ephem.minute, [hmoon])
-    for kind, direction in MOON_KINDS.items():
-        ref = [shift(t) for t, d in mc[hmoon] if d == direction]
-        hel = [parse(e["start"]) for e in evs if e["kind"] == kind]
-        match(hel, ref, MOON_TOL, window, kind, results, missing, rate(moon_alt))
-    ref = [shift(tr) for tr in sky.transits(sky.moon, e0, e1)]
-    hel = [parse(e["start"]) for e in evs if e["kind"] == "moon-transit"]
-    match(hel, ref, MOON_TOL, window, "moon-transit", results, missing)
+    mc = match_moon(sky, evs, hmoon, e0, e1, window, results, missing)
 
     # dark windows from PyEphem's crossings (instants as heliocal's UTC)
     t0, t1 = shift(e0), shift(e1)

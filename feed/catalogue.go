@@ -1201,11 +1201,9 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 		f.Eclipse = e.EclipseFacts()
 	}
 	if entryAllDay(spec, &e.Kind) {
-		d := z.date(en.Start)
-		if offset == 0 && e.Kind.Name == "dark-window" {
-			// the night's date, as its title and its notes have it, not
-			// the next morning's of a window that begins after midnight
-			d = e.Date
+		d := e.Date
+		if !onNightDate(e, offset) {
+			d = z.date(en.Start)
 		}
 		en.AllDay, en.Start, en.End, en.Date = true, d, d.AddDate(0, 0, 1), d
 	}
@@ -1343,12 +1341,21 @@ func entryAllDay(spec *config.KindSpec, k *config.Kind) bool {
 	return spec.AllDay || k.Name == "photoperiod"
 }
 
+// onNightDate reports whether the all-day entry of e, moved by offset, is
+// on the date of its night (e.Date) rather than on the local date of its
+// start: a dark window without an offset, as its title and the notes of
+// nights without one have it, not on the next morning's date of a window
+// that begins after midnight.
+func onNightDate(e *Event, offset time.Duration) bool {
+	return offset == 0 && e.Kind.Name == "dark-window"
+}
+
 // keepEvents applies the date filters and min_duration of spec to the
 // events it gave (evs) and their notes as keep applies them to the
 // entries made of them, in place, and returns what is kept: an event is
 // kept when its entry is, dated and measured as entryWriter.event makes it
 // (an all-day entry on the local date in loc of its start with spec's
-// offset). Notes are all-day entries of their date, a stretch's note
+// offset, or on its night's, onNightDate). Notes are all-day entries of their date, a stretch's note
 // moved first to the first date of its stretch the filters keep
 // (moveStretchNotes; last is the last date computed).
 func keepEvents(evs []Event, notes []Note, spec config.KindSpec, loc *time.Location, last time.Time) ([]Event, []Note) {
@@ -1362,7 +1369,11 @@ func keepEvents(evs []Event, notes []Note, spec config.KindSpec, loc *time.Locat
 	}
 	evs = slices.DeleteFunc(evs, func(e Event) bool {
 		if entryAllDay(&spec, &e.Kind) {
-			return !kept(f, minLen, localDate(e.Start.Add(offset), loc), e.Start, e.End, true)
+			d := e.Date
+			if !onNightDate(&e, offset) {
+				d = localDate(e.Start.Add(offset), loc)
+			}
+			return !kept(f, minLen, d, e.Start, e.End, true)
 		}
 		return !kept(f, minLen, e.Date, e.Start, e.End, false)
 	})

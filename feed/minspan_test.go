@@ -219,4 +219,24 @@ func TestDarkWindowAllDayDate(t *testing.T) {
 	if !e.AllDay || !e.Date.Equal(date("2027-05-11")) || !e.Start.Equal(date("2027-05-11")) || !strings.Contains(e.Title, "night of 11–12 May 2027") {
 		t.Errorf("all-day dark window: %q on %s (start %s), want it on 2027-05-11, the date of its night", e.Title, e.Date.Format(time.DateOnly), e.Start)
 	}
+	// the date filters read the same date, in a feed and in a listing of
+	// events: 11 May 2027 is a Tuesday, 12 May a Wednesday (proleptic
+	// Gregorian calendar, as time.Time counts)
+	for _, c := range []struct {
+		day  string
+		kept int
+	}{{"tue", 1}, {"wed", 0}} {
+		spec.Weekdays = []string{c.day}
+		es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date("2027-05-11"), date("2027-05-11"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		evs, _, err := sk.EventsFor(context.Background(), PlaceOf(s), []config.KindSpec{spec}, date("2027-05-11"), date("2027-05-11"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(es) != c.kept || len(evs) != c.kept {
+			t.Errorf("all-day dark window of the night of 11–12 May, weekdays %s: %d entries and %d events, want %d", c.day, len(es), len(evs), c.kept)
+		}
+	}
 }

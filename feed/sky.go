@@ -20,7 +20,9 @@ type Event struct {
 	Kind config.Kind
 	// Start is the instant (UTC); End is the end of a span, zero for an instant.
 	Start, End time.Time
-	// Date is the site-local date of Start, at 00:00 UTC.
+	// Date is the site-local date of Start, at 00:00 UTC; a dark window's
+	// is the date of its night (the evening it begins on), also when it
+	// begins after midnight.
 	Date time.Time
 	// Part distinguishes the occurrences of a span kind on one date:
 	// "morning", "evening", "night" or "all-day"; for a cross-quarter day it

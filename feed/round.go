@@ -19,6 +19,15 @@ import (
 // ToMillisecond is an instant as JSON shows it.
 func ToMillisecond(t time.Time) time.Time { return t.Round(time.Millisecond) }
 
+// JSONTime is the layout of an instant in the JSON and CSV outputs (heliocal
+// events, the served /at.json): UTC to the millisecond,
+// 2027-11-07T04:48:12.345Z.
+const JSONTime = "2006-01-02T15:04:05.000Z07:00"
+
+// UTCStamp is the instant t as the JSON and CSV outputs write it: to the
+// millisecond (ToMillisecond), in UTC, as JSONTime lays it out.
+func UTCStamp(t time.Time) string { return ToMillisecond(t).UTC().Format(JSONTime) }
+
 // ToSecond is an instant as shown to the second: t.Round(time.Millisecond)
 // .Round(time.Second) in one step. Both round half up, so the second goes
 // up exactly when the millisecond, rounded, is 500 or more: from

@@ -383,12 +383,8 @@ func jsonGC(getenv func(string) (string, bool)) (restore func()) {
 	return func() { debug.SetGCPercent(prev) }
 }
 
-const jsonTime = "2006-01-02T15:04:05.000Z07:00"
-
 // The outputs follow feed's one rounding rule: UTC instants to the
-// millisecond, clock times to the nearest second of that.
-
-func utcStamp(t time.Time) string { return feed.ToMillisecond(t).UTC().Format(jsonTime) }
+// millisecond (feed.UTCStamp), clock times to the nearest second of that.
 
 func localStamp(t time.Time, loc *time.Location) string {
 	return feed.ToSecond(t).In(loc).Format(localCSVTime)
@@ -489,10 +485,10 @@ func toJSONEvent(e feed.Event) jsonEvent {
 		Part:      e.Part,
 	}
 	if !e.DateOnly() {
-		j.Start = utcStamp(e.Start)
+		j.Start = feed.UTCStamp(e.Start)
 	}
 	if !e.End.IsZero() {
-		j.End = utcStamp(e.End)
+		j.End = feed.UTCStamp(e.End)
 	}
 	j.Open = e.Open
 	switch {

@@ -182,9 +182,9 @@ func toJSONEntry(cal *feed.Calendar, e *feed.Entry) jsonEntry {
 		Part: f.Part, Direction: feed.DirectionName(e.Kind, f.Direction), Note: f.Note, Short: f.Short, NextDay: f.NextDay, Open: f.Open,
 		Missing: f.Missing, UID: e.UID, Description: e.Description, jsonEclipse: eclipseJSON(f.Eclipse)}
 	if !e.AllDay {
-		j.Start = utcStamp(e.Start)
+		j.Start = feed.UTCStamp(e.Start)
 		if !e.End.IsZero() {
-			j.End = utcStamp(e.End)
+			j.End = feed.UTCStamp(e.End)
 		}
 		alarm := cal.Alarm
 		if e.Alarm != nil {
@@ -440,10 +440,10 @@ func plainCSVRow(e *feed.Event, loc *time.Location) []string {
 	row[csvCol.date] = e.Date.Format(time.DateOnly)
 	row[csvCol.kind] = e.Kind.String()
 	if !e.DateOnly() {
-		row[csvCol.start], row[csvCol.startLocal] = utcStamp(e.Start), localStamp(e.Start, loc)
+		row[csvCol.start], row[csvCol.startLocal] = feed.UTCStamp(e.Start), localStamp(e.Start, loc)
 	}
 	if !e.End.IsZero() {
-		row[csvCol.end], row[csvCol.endLocal] = utcStamp(e.End), localStamp(e.End, loc)
+		row[csvCol.end], row[csvCol.endLocal] = feed.UTCStamp(e.End), localStamp(e.End, loc)
 	}
 	row[csvCol.direction] = direction(*e)
 	row[csvCol.part] = e.Part

@@ -42,7 +42,7 @@ func eclipseJSON(x *feed.EclipseFacts) *jsonEclipse {
 		if t.IsZero() {
 			return ""
 		}
-		return utcStamp(t)
+		return feed.UTCStamp(t)
 	}
 	round := func(v float64) *float64 {
 		r := math.Round(v*1e4) / 1e4

@@ -627,7 +627,7 @@ func (j *jsonSink) close() error {
 }
 
 // appendUTCMillis appends t rounded to the millisecond (feed.ToMillisecond)
-// in UTC as jsonTime writes it (2027-01-01T06:42:12.854Z), for years
+// in UTC as feed.JSONTime writes it (2027-01-01T06:42:12.854Z), for years
 // 0–9999.
 func (c *dayCache) appendUTCMillis(b []byte, t time.Time) []byte {
 	sec, ms := t.Unix(), uint((t.Nanosecond()+500_000)/1_000_000) // half a millisecond rounds up, as time.Round
@@ -643,7 +643,7 @@ func (c *dayCache) appendUTCMillis(b []byte, t time.Time) []byte {
 }
 
 // putStamp writes the instant ns (Unix nanoseconds, 1800–2200) rounded to
-// the millisecond (feed.ToMillisecond) in UTC into st as jsonTime writes
+// the millisecond (feed.ToMillisecond) in UTC into st as feed.JSONTime writes
 // it, YYYY-MM-DDThh:mm:ss.mmmZ: its digits, over a text that has the rest.
 // It counts from stampDays days before 1970 (in 1790), so that every
 // division is one of unsigned numbers by a constant: a multiplication.

@@ -306,7 +306,7 @@ func TestEventsCSVColumnsOnce(t *testing.T) {
 }
 
 // The JSON writer's own number and time formatting writes what
-// encoding/json and jsonTime write: rounded values of every size and sign,
+// encoding/json and feed.JSONTime write: rounded values of every size and sign,
 // and instants across centuries (before 1970 too), leap days and half
 // milliseconds, from time.Time and from Unix nanoseconds.
 func TestEventsJSONFormatting(t *testing.T) {
@@ -338,12 +338,12 @@ func TestEventsJSONFormatting(t *testing.T) {
 		if i%2 == 0 {
 			c = cache // the day written before, or another
 		}
-		if got, want := string(c.appendUTCMillis(nil, tm)), utcStamp(tm); got != want {
+		if got, want := string(c.appendUTCMillis(nil, tm)), feed.UTCStamp(tm); got != want {
 			t.Fatalf("%v: %s, want %s", tm, got, want)
 		}
 		st := [24]byte([]byte("0000-00-00T00:00:00.000Z"))
-		if c.putStamp(&st, tm.UnixNano()); string(st[:]) != utcStamp(tm) {
-			t.Fatalf("%v: written over the zeros %s, want %s", tm, st, utcStamp(tm))
+		if c.putStamp(&st, tm.UnixNano()); string(st[:]) != feed.UTCStamp(tm) {
+			t.Fatalf("%v: written over the zeros %s, want %s", tm, st, feed.UTCStamp(tm))
 		}
 		if got, want := string(c.appendCivilDate(nil, tm)), tm.UTC().Format(time.DateOnly); got != want {
 			t.Fatalf("%v: date %s, want %s", tm, got, want)

@@ -209,9 +209,9 @@ type previewEntry struct {
 	Open bool `json:"open,omitempty"`
 	// StartUTC and EndUTC are the instants of Time and End in UTC to the
 	// millisecond, as the events listing's JSON writes its start and end
-	// (2027-11-07T04:48:12.345Z): a script's way to tell apart the two
-	// passes of a reading the clocks show twice, which Time and End alone
-	// do not.
+	// (feed.UTCStamp: 2027-11-07T04:48:12.345Z): a script's way to tell
+	// apart the two passes of a reading the clocks show twice, which Time
+	// and End alone do not.
 	StartUTC string `json:"start_utc,omitempty"`
 	EndUTC   string `json:"end_utc,omitempty"`
 	// feedTitle is the title the feed gives the entry, by which the
@@ -640,7 +640,7 @@ func days(cal *feed.Calendar, q AdhocQuery) []previewDay {
 		if !e.AllDay {
 			row := out[i].Date
 			start := feed.ToMinute(e.Start).In(loc) // shown to the minute: the one rounding rule
-			pe.Time, pe.When, pe.StartUTC = start.Format("15:04"), clockOn(start, row), utcStamp(e.Start)
+			pe.Time, pe.When, pe.StartUTC = start.Format("15:04"), clockOn(start, row), feed.UTCStamp(e.Start)
 			if d := start.Format(time.DateOnly); d != row {
 				pe.StartDate = d
 			}
@@ -649,7 +649,7 @@ func days(cal *feed.Calendar, q AdhocQuery) []previewDay {
 				pe.Open, pe.When = true, "from "+pe.When
 			case !e.End.IsZero():
 				end := feed.ToMinute(e.End).In(loc)
-				pe.End, pe.EndUTC = end.Format("15:04"), utcStamp(e.End)
+				pe.End, pe.EndUTC = end.Format("15:04"), feed.UTCStamp(e.End)
 				if end.Format(time.DateOnly) != start.Format(time.DateOnly) {
 					pe.EndDate = end.Format(time.DateOnly)
 					pe.When += "–" + clockOn(end, row)
@@ -677,12 +677,6 @@ func days(cal *feed.Calendar, q AdhocQuery) []previewDay {
 		})
 	}
 	return out
-}
-
-// utcStamp writes the instant t in UTC to the millisecond (feed's one
-// rounding rule), as the events listing's JSON writes its instants.
-func utcStamp(t time.Time) string {
-	return feed.ToMillisecond(t).UTC().Format("2006-01-02T15:04:05.000Z07:00")
 }
 
 // clockChange says how the clocks of loc change on the local date d (its

@@ -299,11 +299,6 @@ func DayMark(t, d time.Time, loc *time.Location) string {
 	return string(appendDays(nil, int64(math.Round(localDate(ToSecond(t), loc).Sub(d).Hours()/24))))
 }
 
-// twoDigits writes 0..99 with a leading zero.
-func twoDigits(n int) string {
-	return string([]byte{byte('0' + n/10), byte('0' + n%10)})
-}
-
 // Durations are written one way in every title, description and table:
 // hours, minutes and seconds, the first unit as a plain number and each
 // later one in two digits, "14 h 02 min", "1 min 05 s", "48 min", and zero
@@ -1328,16 +1323,6 @@ func signedDegrees(v float64) string {
 		return "+" + d
 	}
 	return d
-}
-
-// bearing says where a body rises or sets, in degrees from the north
-// through the east and in words: "rises at 118°, east-south-east".
-func bearing(e Event) string {
-	verb := "sets"
-	if e.Direction == astro.Rising {
-		verb = "rises"
-	}
-	return verb + " at " + azimuthText(e)
 }
 
 // azimuthText is an event's azimuth in whole degrees with its compass

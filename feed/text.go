@@ -1599,7 +1599,7 @@ func noEventToday(k config.Kind) (title, row, desc string) {
 	switch k.Name {
 	case "solar-noon":
 		title, row = onDate("No solar noon", "today", "")
-		return title, row, "No solar noon on this date: the Sun crosses the meridian just before the date begins and just after it ends"
+		return title, row, row + ": the Sun crosses the meridian just before the date begins and just after it ends"
 	case "golden-hour", "blue-hour":
 		title, row = onDate("No "+name+" begins", "today", "")
 		return title, row, row + ": the one that began before it lasts into it"

@@ -136,7 +136,7 @@ func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Tim
 		}
 		fmt.Fprintf(g.stderr, "heliocal: publishing %s from %s to %s\n", publishingWhat(srcs, shard), src, shown)
 		opts.Progress = publish.NewProgress(g.stderr)
-		opts.Progress.Dir = shown
+		opts.Progress.SummaryDir = shown
 	}
 	st, err := publish.Publish(ctx, srcs, opts, w)
 	if err != nil {

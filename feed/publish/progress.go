@@ -18,10 +18,11 @@ import (
 // otherwise, and a summary line at the end either way. Its methods may be
 // called from any goroutine; a nil *Progress reports nothing.
 type Progress struct {
-	// Dir, when not empty, is the output directory as the summary names
-	// it, in place of the Writer's Dir (the same directory written another
-	// way: a relative one resolved).
-	Dir string
+	// SummaryDir, when not empty, is the directory the summary names in
+	// place of the one Finish is given (Publish gives the Writer's Dir):
+	// the same directory written as the user knows it, e.g. a relative one
+	// resolved.
+	SummaryDir string
 
 	w   io.Writer
 	bar bool
@@ -102,7 +103,8 @@ func (p *Progress) Abort() {
 	p.clear()
 }
 
-// Finish removes the bar and prints the summary of st.
+// Finish removes the bar and prints the summary of st, naming dir as the
+// output directory, or SummaryDir when that is set.
 func (p *Progress) Finish(st Stats, dir string) {
 	if p == nil {
 		return
@@ -110,8 +112,8 @@ func (p *Progress) Finish(st Stats, dir string) {
 	p.mu.Lock()
 	defer p.mu.Unlock()
 	p.clear()
-	if p.Dir != "" {
-		dir = p.Dir
+	if p.SummaryDir != "" {
+		dir = p.SummaryDir
 	}
 	fmt.Fprint(p.w, Summary(st, dir))
 }

@@ -10,7 +10,6 @@ import (
 	"net/http"
 	"net/url"
 	"runtime/debug"
-	"slices"
 	"strconv"
 	"strings"
 	"sync"
@@ -381,9 +380,12 @@ func errLine(err error) string {
 	switch {
 	case errors.As(err, &joined):
 		errs := joined.Unwrap()
-		n, what = len(errs), "errors"
-		if !slices.ContainsFunc(errs, func(e error) bool { return !errors.As(e, new(*publish.OversizeError)) }) {
-			what = "feeds over service.max_feed_bytes"
+		n, what = len(errs), "feeds over service.max_feed_bytes"
+		for _, e := range errs {
+			if !errors.As(e, new(*publish.OversizeError)) { // not only feeds over the limit
+				what = "errors"
+				break
+			}
 		}
 	case errors.As(err, &invalid):
 		n, what = len(invalid.Problems), "problems"

@@ -560,7 +560,7 @@ func (c *collector) limitNanos(clock time.Duration) ([]int64, []int64) {
 	z := c.zone()
 	for j := range starts {
 		u := starts[j].Unix()
-		if z.at(u - secondsPerDay); z.to > u+2*secondsPerDay {
+		if z.nextChange(u-secondsPerDay) > u+2*secondsPerDay {
 			out[j] = startsN[j] + int64(clock)
 		}
 	}
@@ -662,7 +662,7 @@ func (c *collector) clockOnDay(day int64, clock time.Duration) time.Time {
 		// days after s
 		z := c.zone()
 		u := s.Unix()
-		if z.at(u - secondsPerDay); z.to > u+2*secondsPerDay {
+		if z.nextChange(u-secondsPerDay) > u+2*secondsPerDay {
 			return s.Add(clock)
 		}
 	}

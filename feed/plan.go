@@ -1136,15 +1136,15 @@ func bothMovedWords(start, end clockMove) string {
 // when the change comes after start, not after end, and "" when there is
 // none: the clocks show start's reading again after the change (a start
 // in the repeated hour, the first of the two: see clockOn), or end is at
-// or after it. The zone's next change after start is the end of its
-// period in z.
+// or after it.
 func goBack(start, end time.Time, z *zoneCache) (words string, across bool) {
 	label, off := z.at(start.Unix())
-	if z.to == math.MaxInt64 {
+	next := z.nextChange(start.Unix())
+	if next == math.MaxInt64 {
 		return "", false // no change after start
 	}
-	change := time.Unix(z.to, 0)
-	_, after := z.at(z.to)
+	change := time.Unix(next, 0)
+	_, after := z.at(next)
 	by := time.Duration(off-after) * time.Second
 	across = !end.IsZero() && !change.After(end)
 	if by <= 0 || !across && change.Sub(start) > by { // the repeated hour's first reading is shown twice too

@@ -144,8 +144,18 @@ func (z *zoneCache) at(u int64) (string, int64) {
 	return z.name, z.off
 }
 
-// lookup caches the zone's period of the Unix second u, for at: at itself,
-// without it, is small enough to be written in place where it is called.
+// nextChange is the Unix second of the zone's first change after the Unix
+// second u, the end of u's period (math.MaxInt64: none after u).
+func (z *zoneCache) nextChange(u int64) int64 {
+	if u < z.from || u >= z.to {
+		z.lookup(u)
+	}
+	return z.to
+}
+
+// lookup caches the zone's period of the Unix second u, for at and
+// nextChange: they, without it, are small enough to be written in place
+// where they are called.
 func (z *zoneCache) lookup(u int64) {
 	for i := range z.nseen {
 		if p := &z.seen[i]; u >= p.from && u < p.to {

@@ -196,7 +196,7 @@ func ParseKind(s string) (Kind, error) {
 		if text == "" { // `kind: ""`, `kinds: [""]`: no value to name
 			msg = "is empty: name a kind"
 		} else if near := nearKind(text, KindNames); near != "" {
-			hint = fmt.Sprintf("did you mean %q?", near)
+			hint = didYouMean(near)
 		}
 		return Kind{}, &KindError{Value: s, Msg: msg, Hint: hint}
 	}

@@ -237,7 +237,7 @@ func ParseDateRule(s string) (DateRule, error) {
 	r, err := parseDateRule(f)
 	if err != nil {
 		if near := nearRule(f); near != "" {
-			err.Hint = fmt.Sprintf("did you mean %q?", near)
+			err.Hint = didYouMean(near)
 		}
 		return DateRule{}, err
 	}
@@ -574,7 +574,7 @@ func parseTimeSpec(t string, suggest bool) (TimeSpec, *RuleError) {
 		hint := timeSpecHint
 		if suggest {
 			if near := nearTimeSpec(t, name); near != "" {
-				hint = fmt.Sprintf("did you mean %q?", near)
+				hint = didYouMean(near)
 			}
 		}
 		return TimeSpec{}, &RuleError{Msg: fmt.Sprintf("unknown kind %q", name), Hint: hint}
@@ -710,7 +710,7 @@ func checkFilter(ps *problems, p string, weekdays, months, dates []string) {
 			}
 			hint := l.all
 			if near := nearName(strings.ToLower(strings.TrimSpace(v)), l.names, l.full); near != "" {
-				hint = fmt.Sprintf("did you mean %q?", near)
+				hint = didYouMean(near)
 			} else if m, err := strconv.Atoi(strings.TrimSpace(v)); err == nil && l.key == "months" {
 				hint = monthNumberHint(int64(m), hint) // "8" for August
 			}

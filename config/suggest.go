@@ -67,12 +67,17 @@ func closest(s string, candidates []string) string {
 // when none is near enough: for the command line's ids (--site, --feed).
 func Suggest(s string, candidates []string) string { return closest(s, candidates) }
 
+// didYouMean is the hint naming the value that a misspelt one likely means,
+// near, as every suggestion of the configuration words it: `did you mean
+// "civil"?`. Each finder picks near from its own candidates.
+func didYouMean(near string) string { return fmt.Sprintf("did you mean %q?", near) }
+
 // nearValue is the hint for a value v that is none of the values a key
 // takes: the one v likely means (`did you mean "civil"?` for "Civil",
 // "both" for "bothe"), else hint (what the values mean, or the values).
 func nearValue(v string, values []string, hint string) string {
 	if near := closest(v, values); near != "" {
-		return fmt.Sprintf("did you mean %q?", near)
+		return didYouMean(near)
 	}
 	return hint
 }

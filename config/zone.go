@@ -112,17 +112,17 @@ func ZoneHint(name string) string {
 	}
 	for _, z := range zoneNames() {
 		if strings.EqualFold(z, n) {
-			return fmt.Sprintf("did you mean %q?", z)
+			return didYouMean(z)
 		}
 	}
 	city := n[strings.LastIndex(n, "/")+1:]
 	for _, z := range zoneNames() {
 		if strings.EqualFold(z[strings.LastIndex(z, "/")+1:], city) {
-			return fmt.Sprintf("did you mean %q?", z)
+			return didYouMean(z)
 		}
 	}
 	if near := closest(n, zoneNames()); near != "" {
-		return fmt.Sprintf("did you mean %q?", near)
+		return didYouMean(near)
 	}
 	return generic
 }

@@ -215,39 +215,14 @@ func MoonFrom(o Observer, t time.Time) (MoonTopocentric, error) {
 		return MoonTopocentric{}, err
 	}
 	m := moonApparent(e.JDE)
-	phi := o.Latitude * deg2rad
-	ba := 1 - earthFlattening
-	u := math.Atan(ba * math.Tan(phi))
-	hr := o.Elevation / (earthRadiusKm * 1000)
-	rhoSin := ba*math.Sin(u) + hr*math.Sin(phi)
-	rhoCos := math.Cos(u) + hr*math.Cos(phi)
-	theta := ApparentSiderealTime(e.JDUT1, e.JDE) * deg2rad
-	H := theta + o.Longitude*deg2rad - m.ra
-	sinPi := earthRadiusKm / m.dist
-	sH, cH := math.Sincos(H)
-	sd, cd := math.Sincos(m.dec)
-	den := cd - rhoCos*sinPi*cH
-	dRA := math.Atan2(-rhoCos*sinPi*sH, den)
-	dec := math.Atan2((sd-rhoSin*sinPi)*math.Cos(dRA), den)
-	Hp := H - dRA
-	sHp, cHp := math.Sincos(Hp)
-	sp, cp := math.Sincos(phi)
-	sdp, cdp := math.Sincos(dec)
-	alt := math.Asin(sp*sdp + cp*cdp*cHp)
-	az := math.Atan2(sHp, cHp*sp-sdp/cdp*cp) + math.Pi // Meeus 13.5 counts from the south
-	// distance: |geocentric Moon − observer|, in Earth radii then km
-	q := 1 / sinPi
-	x := q*cd*cH - rhoCos
-	y := q * cd * sH
-	z := q*sd - rhoSin
-	dist := math.Sqrt(x*x+y*y+z*z) * earthRadiusKm
+	p := topocentric(o, e, m.ra, m.dec, m.dist, m.eqEq)
 	return MoonTopocentric{
-		RightAscension: norm2Pi(m.ra+dRA) * rad2deg,
-		Declination:    dec * rad2deg,
-		HourAngle:      math.Remainder(Hp, 2*math.Pi) * rad2deg,
-		Altitude:       alt * rad2deg,
-		Azimuth:        norm2Pi(az) * rad2deg,
-		Distance:       dist,
-		Semidiameter:   math.Asin(moonRadiusKm/dist) * rad2deg,
+		RightAscension: norm2Pi(p.ra) * rad2deg,
+		Declination:    p.dec * rad2deg,
+		HourAngle:      math.Remainder(p.ha, 2*math.Pi) * rad2deg,
+		Altitude:       p.alt * rad2deg,
+		Azimuth:        norm2Pi(p.az) * rad2deg,
+		Distance:       p.dist,
+		Semidiameter:   math.Asin(moonRadiusKm/p.dist) * rad2deg,
 	}, nil
 }

@@ -80,6 +80,20 @@ func BenchmarkMoon(b *testing.B) {
 	}
 }
 
+// BenchmarkMoonFrom: the Moon's topocentric place from a site at one
+// instant (ELP/MPP02, nutation, parallax).
+func BenchmarkMoonFrom(b *testing.B) {
+	o := Observer{Latitude: 48.2, Longitude: 16.4, Elevation: 170}
+	t := time.Date(2027, 3, 1, 0, 0, 0, 0, time.UTC)
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := MoonFrom(o, t); err != nil {
+			b.Fatal(err)
+		}
+		t = t.Add(time.Minute)
+	}
+}
+
 // BenchmarkMoonIllumination: direct (MoonIllumination) against interpolated
 // (MoonEphemeris.Illumination) illumination of one instant.
 func BenchmarkMoonIllumination(b *testing.B) {

@@ -1,0 +1,59 @@
+package astro
+
+import "math"
+
+// The place of a body in a site's sky at one instant (MoonFrom): the
+// apparent geocentric position corrected for parallax by the
+// rigorous formulas of Meeus, Astronomical Algorithms 2nd ed., ch. 40
+// (eqs. 40.2, 40.3, with ρ sin φ′ and ρ cos φ′ of ch. 11 from the geodetic
+// latitude and the elevation), then altitude and azimuth (ch. 13) with the
+// apparent sidereal time.
+
+// topo is a body's topocentric place, radians and km.
+type topo struct {
+	ra, dec float64 // topocentric right ascension (not reduced) and declination
+	ha      float64 // local topocentric hour angle, not reduced, west positive
+	alt, az float64 // geometric altitude; azimuth from the north through the east, not reduced
+	dist    float64 // from the observer to the body's centre, km
+}
+
+// topocentric returns the place, seen from the valid observer o at epoch e,
+// of a body at apparent geocentric right ascension ra, declination dec
+// (radians, true equator and equinox of date) and distance dist (km);
+// eqEq is the equation of the equinoxes Δψ cos ε at e (radians), which the
+// body's apparent position has already computed.
+func topocentric(o Observer, e Epoch, ra, dec, dist, eqEq float64) topo {
+	phi := o.Latitude * deg2rad
+	ba := 1 - earthFlattening
+	u := math.Atan(ba * math.Tan(phi))
+	hr := o.Elevation / (earthRadiusKm * 1000)
+	rhoSin := ba*math.Sin(u) + hr*math.Sin(phi)
+	rhoCos := math.Cos(u) + hr*math.Cos(phi)
+	theta := norm360(meanSiderealRaw(e.JDUT1)+eqEq*rad2deg) * deg2rad // ApparentSiderealTime
+	H := theta + o.Longitude*deg2rad - ra
+	sinPi := earthRadiusKm / dist
+	sH, cH := math.Sincos(H)
+	sd, cd := math.Sincos(dec)
+	den := cd - rhoCos*sinPi*cH
+	dRA := math.Atan2(-rhoCos*sinPi*sH, den)
+	tdec := math.Atan2((sd-rhoSin*sinPi)*math.Cos(dRA), den)
+	Hp := H - dRA
+	sHp, cHp := math.Sincos(Hp)
+	sp, cp := math.Sincos(phi)
+	sdp, cdp := math.Sincos(tdec)
+	alt := math.Asin(sp*sdp + cp*cdp*cHp)
+	az := math.Atan2(sHp, cHp*sp-sdp/cdp*cp) + math.Pi // Meeus 13.5 counts from the south
+	// distance: |geocentric body − observer|, in Earth radii then km
+	q := 1 / sinPi
+	x := q*cd*cH - rhoCos
+	y := q * cd * sH
+	z := q*sd - rhoSin
+	return topo{
+		ra:   ra + dRA,
+		dec:  tdec,
+		ha:   Hp,
+		alt:  alt,
+		az:   az,
+		dist: math.Sqrt(x*x+y*y+z*z) * earthRadiusKm,
+	}
+}

@@ -110,3 +110,59 @@ func BenchmarkNewEphemerisYearComputed(b *testing.B) {
 		}
 	}
 }
+
+// BenchmarkSunFrom: the Sun's altitude and azimuth from a site at one
+// instant, by SunFrom ("direct": VSOP87D, nutation, parallax, refraction)
+// and, as a library user had to before SunFrom, by an Ephemeris built for
+// that instant and queried once ("ephemeris"), or built once for a month
+// and queried at an instant after another ("ephemeris-month").
+func BenchmarkSunFrom(b *testing.B) {
+	o := Observer{Latitude: 48.2, Longitude: 16.4, Elevation: 170}
+	from := time.Date(2027, 3, 1, 0, 0, 0, 0, time.UTC)
+	b.Run("direct", func(b *testing.B) {
+		b.ReportAllocs()
+		t := from
+		for b.Loop() {
+			if _, err := SunFrom(o, t); err != nil {
+				b.Fatal(err)
+			}
+			t = t.Add(time.Minute)
+		}
+	})
+	b.Run("ephemeris", func(b *testing.B) {
+		b.ReportAllocs()
+		t := from
+		for b.Loop() {
+			e, err := NewEphemeris(t, t)
+			if err != nil {
+				b.Fatal(err)
+			}
+			if _, err := e.SunAltitude(o, t); err != nil {
+				b.Fatal(err)
+			}
+			if _, err := e.SunAzimuth(o, t); err != nil {
+				b.Fatal(err)
+			}
+			t = t.Add(time.Minute)
+		}
+	})
+	b.Run("ephemeris-month", func(b *testing.B) {
+		e, err := NewEphemeris(from, from.AddDate(0, 1, 0))
+		if err != nil {
+			b.Fatal(err)
+		}
+		b.ReportAllocs()
+		t := from
+		for b.Loop() {
+			if _, err := e.SunAltitude(o, t); err != nil {
+				b.Fatal(err)
+			}
+			if _, err := e.SunAzimuth(o, t); err != nil {
+				b.Fatal(err)
+			}
+			if t = t.Add(time.Minute); t.After(from.AddDate(0, 1, 0)) {
+				t = from
+			}
+		}
+	})
+}

@@ -2,12 +2,12 @@ package astro
 
 import "math"
 
-// The place of a body in a site's sky at one instant (MoonFrom): the
-// apparent geocentric position corrected for parallax by the
+// The place of the Sun or the Moon in a site's sky at one instant (SunFrom,
+// MoonFrom): the apparent geocentric position corrected for parallax by the
 // rigorous formulas of Meeus, Astronomical Algorithms 2nd ed., ch. 40
 // (eqs. 40.2, 40.3, with ρ sin φ′ and ρ cos φ′ of ch. 11 from the geodetic
 // latitude and the elevation), then altitude and azimuth (ch. 13) with the
-// apparent sidereal time.
+// apparent sidereal time; for the Sun also the refraction of ch. 16.
 
 // topo is a body's topocentric place, radians and km.
 type topo struct {
@@ -56,4 +56,50 @@ func topocentric(o Observer, e Epoch, ra, dec, dist, eqEq float64) topo {
 		az:   az,
 		dist: math.Sqrt(x*x+y*y+z*z) * earthRadiusKm,
 	}
+}
+
+// bennettMinAltitude is the lowest apparent altitude (degrees) at which
+// refractedAltitude applies Bennett's formula, as RiseSetAltitude takes it.
+const bennettMinAltitude = -1.0
+
+// bennett returns the standard refraction (arcminutes) at apparent altitude
+// a (degrees, ≥ bennettMinAltitude): Bennett's formula
+// R = 1′/tan(a + 7.31/(a + 4.4)) (Meeus, Astronomical Algorithms 2nd ed.,
+// ch. 16), and its derivative dR/da (arcminutes per degree). The formula
+// turns negative above 89.92° (−0.08″ at the zenith); it is taken as 0
+// there.
+func bennett(a float64) (r, dr float64) {
+	b := a + 4.4
+	s, c := math.Sincos((a + 7.31/b) * deg2rad)
+	r = c / s
+	if r <= 0 {
+		return 0, 0
+	}
+	return r, -(1 - 7.31/(b*b)) * deg2rad / (s * s)
+}
+
+// refractedAltitude returns the apparent altitude (degrees) of a body at
+// geometric altitude h (degrees) in air whose refraction is f times the
+// standard one (Observer.RefractionFactor): the altitude a at which
+// a − f·R(a) = h, R being Bennett's formula, which RiseSetAltitude takes
+// for a raised Horizon and the skyline searches take; solved by Newton's
+// method (a − f·R(a) increases with a), to 1e-12°. Below the geometric
+// altitude whose apparent altitude is −1° (−1.83° in the standard air),
+// where the formula stops, it returns h: no refraction.
+func refractedAltitude(h, f float64) float64 {
+	rMin, _ := bennett(bennettMinAltitude)
+	if h < bennettMinAltitude-f*rMin/60 {
+		return h
+	}
+	r, _ := bennett(max(h, bennettMinAltitude))
+	a := max(h+f*r/60, bennettMinAltitude)
+	for range 20 {
+		r, dr := bennett(a)
+		step := (a - f*r/60 - h) / (1 - f*dr/60)
+		a = max(a-step, bennettMinAltitude)
+		if math.Abs(step) < 1e-12 {
+			break
+		}
+	}
+	return a
 }

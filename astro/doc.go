@@ -21,8 +21,12 @@
 //     rising and setting crossings, or the State AlwaysAbove (midnight Sun)
 //     or AlwaysBelow (polar night) when there is none. Ephemeris.SunCrossings
 //     gives the same crossings over a span of instants instead of dates;
-//   - solar noon: Ephemeris.SunTransits; the Sun's altitude and azimuth at a
-//     place: Ephemeris.SunAltitude and Ephemeris.SunAzimuth;
+//   - solar noon: Ephemeris.SunTransits;
+//   - the Sun's place in a site's sky at one instant ("where is the Sun now,
+//     from here?"): SunFrom, one call without an Ephemeris (altitude,
+//     refracted altitude, azimuth, distance, semidiameter); MoonFrom for the
+//     Moon. For many instants of a span, Ephemeris.SunAltitude and
+//     Ephemeris.SunAzimuth give the same altitude and azimuth cheaper;
 //   - moonrise, moonset and the Moon's transits: NewMoonEphemeris, then
 //     MoonEphemeris.MoonDays and MoonEphemeris.MoonTransits; dark-sky
 //     windows: MoonEphemeris.DarkWindows;
@@ -59,6 +63,8 @@
 //	                                                                       USNO rise/set and twilight definitions; refraction: Bennett's
 //	                                                                       formula scaled for pressure and temperature, Meeus ch. 16
 //	azimuth.go                azimuth of the Sun and the Moon              Meeus ch. 13 (counted here from the north)
+//	topocentric.go, sun.go    the Sun and the Moon from a site at one      Meeus ch. 40 (parallax, eqs. 40.2, 40.3), 13 (altitude, azimuth),
+//	                          instant (SunFrom, MoonFrom)                  16 (Bennett's refraction, solved for the apparent altitude)
 //	skyline.go                rise and set over a skyline per direction    Meeus eq. 16.4 (refraction at the skyline's altitude)
 //	elp.go, zz_elp_moon.go    the Moon's geocentric position               ELP/MPP02 (DE405 fit), Chapront & Francou, A&A 404, 735 (2003)
 //	moon.go                   apparent Moon (light time, nutation),        Meeus ch. 47 (method), 40 (parallax), 48 (illuminated fraction,
@@ -113,6 +119,10 @@
 //   - sunrise, sunset, twilight, other thresholds, solar noon, 1973–2023:
 //     within 0.05 s of ERFA up to 66° of latitude, every event present
 //     from 89° S to 89° N; within the minute rounding of USNO's tables.
+//   - the Sun from a site (SunFrom): within 0.51″ of PyEphem in altitude
+//     and azimuth at PyEphem's time scales, within 2″ of NOAA's spreadsheet
+//     in altitude once NOAA's omitted parallax is added back; within
+//     0.001″ of Ephemeris.SunAltitude and SunAzimuth;
 //   - apparent Moon 1800–2199: within 0.13″ of the Swiss Ephemeris with its
 //     DE431-based files (0.4 km in distance);
 //   - Moon phases 1900–2099: within 0.22 s (TT) of the same; within the

@@ -223,6 +223,34 @@ func ExampleEphemeris_SunAzimuth() {
 	// altitude 73.4°, azimuth 178.5° (south)
 }
 
+// Where the Sun is now, from here, in one call: SunFrom needs no Ephemeris.
+// Altitude is geometric (the Sun's centre without the air); RefractedAltitude
+// is where it is seen, raised by the refraction of the Observer's air (the
+// standard air when Pressure is 0).
+//
+// PyEphem 4.1.4 (ephem.Observer at 40°N, 105°W, elevation 0, date
+// 2010/6/21 19:00:00, ephem.Sun()): altitude 73.4327° with pressure 0 and
+// 73.4375° with pressure 1010 hPa, temp 10 °C, azimuth 178.5257°, Earth
+// distance 1.016205 au, radius 944.33″ = 15.74′ (geocentric; the observer
+// is 0.00004 au nearer). NOAA's solar calculation spreadsheet, same place
+// and instant, 12:00 at UTC−7 (testdata/reference/worked-examples.csv, row
+// NOAA-2-pos): 73.4385° corrected for refraction, azimuth 178.5332°.
+// Printed as far as the sources agree.
+func ExampleSunFrom() {
+	mst := time.FixedZone("MST", -7*3600)
+	site := astro.Observer{Latitude: 40, Longitude: -105}
+	sun, err := astro.SunFrom(site, time.Date(2010, 6, 21, 12, 0, 0, 0, mst))
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("altitude %.3f° (seen at %.2f°), azimuth %.1f° (%s)\n", sun.Altitude, sun.RefractedAltitude, sun.Azimuth, astro.CompassPoint(sun.Azimuth))
+	fmt.Printf("distance %.4f au, semidiameter %.1f′\n", sun.Distance, sun.Semidiameter*60)
+	// Output:
+	// altitude 73.433° (seen at 73.44°), azimuth 178.5° (south)
+	// distance 1.0162 au, semidiameter 15.7′
+}
+
 // The equinoxes and solstices of a year, in UTC.
 //
 // U.S. Naval Observatory, Earth's Seasons 2022 (testdata/reference/seasons.csv,

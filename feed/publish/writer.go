@@ -79,6 +79,9 @@ type Writer struct {
 	step func(what string)
 	// now is the clock used to age leftovers; nil means time.Now.
 	now func() time.Time
+	// link makes the hard link keep keeps a replaced file's content by;
+	// nil means os.Link. Overridden by tests to refuse it.
+	link func(oldname, newname string) error
 	// undo, while a commit changes the directory, records each change so
 	// that a commit failing part-way can put back what was there before.
 	undo *undoLog
@@ -429,14 +432,17 @@ type undoLog struct {
 type undoStep struct {
 	name    string // in Writer.Dir
 	existed bool   // the file was there before the change
-	prev    string // path of its previous content (a hard link to it); "" when it could not be kept
+	prev    string // path of its previous content (a hard link to it, or a copy); "" when it could not be kept
 }
 
 // keep records, before a commit replaces or removes the file name, what it
 // holds: a hard link to it under a prevInfix name, so that nothing is copied
-// and a failed commit can rename it back (endUndo). Where the file system
-// cannot link, the change is made all the same; putting back would stop at
-// that file.
+// where the file system allows it, and a failed commit can rename it back
+// (endUndo). Where no link can be
+// made (a file of another user where the system protects links,
+// fs.protected_hardlinks on Linux; a file system without hard links), a
+// copy is kept instead. When neither can be made (a full disk), the change
+// is made all the same; putting back would stop at that file.
 func (w *Writer) keep(name string) {
 	if w.undo == nil {
 		return
@@ -446,12 +452,63 @@ func (w *Writer) keep(name string) {
 	if _, err := os.Lstat(final); err == nil {
 		st.existed = true
 		w.tell("keep " + name)
-		prev, err := freshName(filepath.Join(w.Dir, "."+name+prevInfix), "", 100, func(prev string) error { return os.Link(final, prev) })
+		link := w.link
+		if link == nil {
+			link = os.Link
+		}
+		prefix := filepath.Join(w.Dir, "."+name+prevInfix)
+		prev, err := freshName(prefix, "", 100, func(prev string) error { return link(final, prev) })
+		if err != nil {
+			prev, err = copyPrev(final, prefix)
+		}
 		if err == nil {
 			st.prev = prev
 		}
 	}
 	w.undo.steps = append(w.undo.steps, st)
+}
+
+// copyPrev copies the file final to a new file prefix + digits, with
+// FileMode and final's modification time (a file put back from it looks
+// to a web server as it did), flushed to disk, and returns its name.
+// Nothing is left behind on error.
+func copyPrev(final, prefix string) (_ string, err error) {
+	src, err := os.Open(final)
+	if err != nil {
+		return "", err
+	}
+	defer src.Close()
+	fi, err := src.Stat()
+	if err != nil {
+		return "", err
+	}
+	var dst *os.File
+	prev, err := freshName(prefix, "", 100, func(name string) (err error) {
+		dst, err = openNew(name, FileMode)
+		return err
+	})
+	if err != nil {
+		return "", err
+	}
+	defer func() {
+		if err != nil {
+			os.Remove(prev)
+		}
+	}()
+	_, err = io.Copy(dst, src)
+	if err == nil {
+		err = dst.Chmod(FileMode)
+	}
+	if err == nil {
+		err = dst.Sync()
+	}
+	if cerr := dst.Close(); err == nil {
+		err = cerr
+	}
+	if err == nil {
+		err = os.Chtimes(prev, time.Time{}, fi.ModTime())
+	}
+	return prev, err
 }
 
 // unkeep forgets the change keep recorded last: it failed, the file is as

@@ -605,6 +605,55 @@ func TestFailedCommitWithoutLinksSaysWhatStaysNew(t *testing.T) {
 	}
 }
 
+// Where the files cannot be linked (published by another user, on a
+// system that protects links: fs.protected_hardlinks, the default of most
+// Linux distributions, refuses with EPERM), a commit that fails at its last
+// rename still puts back every file it replaced, from copies: the
+// directory holds the publication before it, byte for byte and with the
+// modification times a web server reports, and no file of the commit's.
+func TestFailedCommitWithoutLinksPutsBackCopies(t *testing.T) {
+	dir := t.TempDir()
+	publishTo(t, dir, "", testOptions())
+	old := snapshot(t, dir)
+	oldTimes := map[string]time.Time{}
+	for name := range old {
+		fi, err := os.Stat(filepath.Join(dir, name))
+		if err != nil {
+			t.Fatal(err)
+		}
+		oldTimes[name] = fi.ModTime()
+	}
+	links := 0
+	w := &Writer{Dir: dir, link: func(oldname, newname string) error {
+		links++
+		return &os.LinkError{Op: "link", Old: oldname, New: newname, Err: syscall.EPERM}
+	}, step: func(what string) {
+		if name, ok := strings.CutPrefix(what, "rename "); ok && name == IndexName {
+			removeTemp(t, dir, name)
+		}
+	}}
+	_, err := Publish(context.Background(), Calendars(testCalendars(t, " (revised)")...), testOptions(), w)
+	want := "publish: replace " + filepath.Join(dir, IndexName) + ": no such file or directory; " + nothingChanged
+	if err == nil || err.Error() != want {
+		t.Fatalf("error:\n%v\nwant:\n%s", err, want)
+	}
+	if links == 0 {
+		t.Fatal("the commit made no link to refuse")
+	}
+	now := snapshot(t, dir)
+	if !maps.EqualFunc(now, old, bytes.Equal) {
+		t.Errorf("the published files changed: %v, were %v", keys(now), keys(old))
+	}
+	for name, was := range oldTimes {
+		if fi, err := os.Stat(filepath.Join(dir, name)); err != nil || !fi.ModTime().Equal(was) {
+			t.Errorf("%s: modified %v (%v), was %v", name, fi.ModTime(), err, was)
+		}
+	}
+	if tmp := tempNames(t, dir); len(tmp) > 0 {
+		t.Errorf("temporary files left behind: %v", tmp)
+	}
+}
+
 // A run interrupted while it computes and writes its new files (SIGINT or
 // SIGTERM cancel its context) leaves the published files as they were, no
 // temporary file of its own, and an error that says so, not the bare

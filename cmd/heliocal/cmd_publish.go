@@ -228,7 +228,9 @@ func brokenLink(field, out, p string, statErr error) error {
 // nothing can be created (/proc/1, for the superuser too), is named with the
 // flag or key that gave it and a hint, not by the temporary file or lock file
 // the publish tried first ("open public/.farm-sun.ics.tmp-81…: permission
-// denied"); a full disk or an exhausted quota is named with the file that
+// denied"); a file already there that the user may not open (a lock file
+// or a feed of another user, in a directory the user may write to) is
+// named with the directory; a full disk or an exhausted quota is named with the file that
 // found it so, as the user knows it ("farm-sun.ics"). What the publish says
 // of the files it left (the writer keeps nothing half-written: "nothing was
 // changed: …") follows. It stays a
@@ -247,6 +249,15 @@ func outDirFailed(field, out string, err error) error {
 	}
 	hint, what := "give a directory this user may write to, or change its permissions", "cannot write into it"
 	switch {
+	case errors.Is(pe.Err, fs.ErrPermission) && filepath.Dir(filepath.Clean(pe.Path)) == filepath.Clean(out) && exists(pe.Path):
+		// a file already there that this user may not open (the lock file
+		// or a feed another user published), in a directory the user may
+		// well write to: the file is named, not the directory
+		what = "cannot use " + filepath.Base(pe.Path) + " in it"
+		if pe.Op == "open" {
+			what = "cannot open " + filepath.Base(pe.Path) + " in it"
+		}
+		hint = "this user may not: change the file's owner or permissions, or remove it, and publish writes it again"
 	case errors.Is(pe.Err, fs.ErrPermission):
 	case errors.Is(pe.Err, syscall.EROFS):
 		hint = "give a directory on a file system that can be written"
@@ -263,6 +274,12 @@ func outDirFailed(field, out string, err error) error {
 	// what the publish added after the failure: "; nothing was changed: …"
 	_, tail, _ := strings.Cut(err.Error(), pe.Error())
 	return &outDirError{msg: fmt.Sprintf("%s: %q: %s (%v; %s)%s", field, out, what, pe.Err, hint, tail), err: err}
+}
+
+// exists reports whether there is a file, of any type, at path.
+func exists(path string) bool {
+	_, err := os.Lstat(path)
+	return err == nil
 }
 
 // sameTree reports whether the path p is the directory out, inside it, or

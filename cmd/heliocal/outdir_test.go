@@ -85,6 +85,44 @@ func TestOutDirFailedWords(t *testing.T) {
 	}
 }
 
+// A file already in the output directory that the user may not open (the
+// lock file, or a feed, left by a publish run as another user; the
+// directory itself is writable) is named, not the directory, which the
+// user would find writable: the errors are those the publish returns when
+// the lock file (lockDir) or a published feed (fileEquals) cannot be
+// opened. A file the publish would create, which is not there, still
+// names the directory.
+func TestOutDirFailedNamesAFileThere(t *testing.T) {
+	out := t.TempDir()
+	for _, name := range []string{publish.LockName, "farm-sun.ics"} {
+		if err := os.WriteFile(filepath.Join(out, name), nil, 0o600); err != nil {
+			t.Fatal(err)
+		}
+	}
+	pathErr := func(name string) error {
+		return &fs.PathError{Op: "open", Path: filepath.Join(out, name), Err: syscall.EACCES}
+	}
+	for _, tc := range []struct {
+		err  error
+		want string
+	}{
+		{fmt.Errorf("publish: lock %s: %w", filepath.Join(out, publish.LockName), pathErr(publish.LockName)),
+			`--out: "` + out + `": cannot open .heliocal-publish.lock in it (permission denied; this user may not: change the file's owner or permissions, or remove it, and publish writes it again)`},
+		{fmt.Errorf("publish: %w", pathErr("farm-sun.ics")),
+			`--out: "` + out + `": cannot open farm-sun.ics in it (permission denied; this user may not: change the file's owner or permissions, or remove it, and publish writes it again)`},
+		{fmt.Errorf("publish: write farm-moon.ics: %w", pathErr(".farm-moon.ics.tmp-1")),
+			`--out: "` + out + `": cannot write into it (permission denied; give a directory this user may write to, or change its permissions)`},
+	} {
+		err := outDirFailed("--out", out, tc.err)
+		if err.Error() != tc.want {
+			t.Errorf("message\n%s\nwant\n%s", err, tc.want)
+		}
+		if !errors.Is(err, tc.err) {
+			t.Errorf("%v does not unwrap to the publish's error", err)
+		}
+	}
+}
+
 // Publishing into a directory the user may not write to, or under one,
 // fails (exit 1) naming the directory and the flag, with the hint, and
 // leaves the directory as it was. The superuser writes into any directory:

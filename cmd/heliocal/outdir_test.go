@@ -137,7 +137,7 @@ func TestPublishUnwritableOutDir(t *testing.T) {
 	}
 	t.Cleanup(func() { os.Chmod(ro, 0o755) })
 	for _, tc := range []struct{ out, want string }{
-		{ro, `heliocal: --out: "` + ro + `": cannot write into it (permission denied; give a directory this user may write to, or change its permissions)` + "\n"},
+		{ro, `heliocal: --out: "` + ro + `": cannot write into it (permission denied; give a directory this user may write to, or change its permissions); nothing was changed: the files published before are as they were` + "\n"},
 		{filepath.Join(ro, "sub"), `heliocal: --out: "` + filepath.Join(ro, "sub") + `": cannot create it (permission denied; give a directory this user may write to, or change its permissions)` + "\n"},
 	} {
 		code, _, errOut := runCLI(t, "publish", "--quiet", "--out", tc.out)

@@ -82,9 +82,10 @@ func (r *publishRun) stage(ctx context.Context) error {
 			r.mu.Unlock()
 		}
 		rd.staged = sf
-		if diskFull(err) {
+		if err != nil {
 			// staging replaces nothing: say so, as a failed commit does,
-			// to whoever finds the disk full
+			// to whoever finds the disk full or a directory where a feed
+			// goes
 			err = fmt.Errorf("%w; %s", err, nothingChanged)
 		}
 		return err

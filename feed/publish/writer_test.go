@@ -406,7 +406,7 @@ func TestWriterRefusesNonRegularTargets(t *testing.T) {
 			if err == nil {
 				t.Fatal("publish replaced a non-regular file")
 			}
-			want := "publish: refusing to replace " + target + ": not a regular file (" + tc.want + ")"
+			want := "publish: refusing to replace " + target + ": not a regular file (" + tc.want + "); " + nothingChanged
 			if err.Error() != want {
 				t.Errorf("error\n got %q\nwant %q", err, want)
 			}

@@ -503,6 +503,37 @@ func TestFormatParity(t *testing.T) {
 	}
 }
 
+// A file that starts with a UTF-8 byte order mark, as some Windows editors
+// write them, or that ends its lines with CR LF, reads as the same file
+// without, in every format.
+func TestByteOrderMarkAndCRLF(t *testing.T) {
+	for _, name := range []string{"parity.yaml", "parity.toml", "parity.json"} {
+		raw, err := os.ReadFile(filepath.Join(testdata, name))
+		if err != nil {
+			t.Fatal(err)
+		}
+		format := strings.TrimPrefix(filepath.Ext(name), ".")
+		c, err := Parse(bytes.NewReader(raw), format)
+		if err != nil {
+			t.Fatalf("%s: %v", name, err)
+		}
+		want := comparable(c)
+		for what, in := range map[string][]byte{
+			"byte order mark": append([]byte("\ufeff"), raw...),
+			"CR LF":           bytes.ReplaceAll(raw, []byte("\n"), []byte("\r\n")),
+		} {
+			c, err := Parse(bytes.NewReader(in), format)
+			if err != nil {
+				t.Errorf("%s with a %s: %v", name, what, err)
+				continue
+			}
+			if got := comparable(c); got != want {
+				t.Errorf("%s with a %s reads\n%s\nwant\n%s", name, what, got, want)
+			}
+		}
+	}
+}
+
 func TestEnvOverrides(t *testing.T) {
 	env := map[string]string{
 		"HELIOCAL_LISTEN":         "127.0.0.1:9999",

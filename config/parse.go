@@ -119,6 +119,12 @@ func parseFrom(r io.Reader, format string, env LookupEnv, dir string) (*Config, 
 // from, where a relative skyline file name is read from ("" for the
 // working directory: standard input, the demo).
 func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, err error) {
+	if format != "yaml" {
+		// A byte order mark, which some Windows editors write at the
+		// start of a UTF-8 file: the YAML decoder skips it, the TOML and
+		// JSON decoders take it for a character out of place ("ï").
+		data = bytes.TrimPrefix(data, []byte("\ufeff"))
+	}
 	if format == "yaml" {
 		if data, err = yamlVersion(data); err != nil {
 			return nil, err

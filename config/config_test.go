@@ -809,6 +809,10 @@ func TestLoadErrors(t *testing.T) {
 		"[[feeds.kinds]]\nweekdays = sat\n":      `line 2: weekdays = sat: text is written in quotes in TOML (write weekdays = ["sat"])`, // not "sat", which is no list
 		"[[feeds.kinds]]\noffset = -30m\n":       `line 2: offset = -30m: text is written in quotes in TOML (write offset = "-30m")`,
 		"[[feeds]]\nalarm = 1h30m\n":             `line 2: alarm = 1h30m: text is written in quotes in TOML (write alarm = "1h30m")`,
+		// a clock time, which TOML reads as a time only with seconds: not
+		// its "times are expected to have the format HH:MM:SS[.NNNNNN]"
+		"[[feeds.plans]]\nstart = 20:00\n":             `line 2: start = 20:00: text is written in quotes in TOML (write start = "20:00")`,
+		"[[feeds.kinds]]\nlatest_off = 5:30 # lamps\n": `line 2: latest_off = 5:30: text is written in quotes in TOML (write latest_off = "5:30")`,
 	} {
 		_, err = Parse(strings.NewReader(in), "toml")
 		if !errors.Is(err, ErrUnreadable) || !strings.HasSuffix(err.Error(), want) {

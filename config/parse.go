@@ -539,6 +539,8 @@ func tomlBareText(data []byte, row int) string {
 		switch {
 		case isBareDuration(w): // offset = -30m
 			return strconv.Quote(w), true
+		case isBareClock(w): // start = 20:00, which TOML reads as a time only with its seconds
+			return strconv.Quote(w), true
 		case !unicode.IsLetter(r), w == "true", w == "false", w == "inf", w == "nan", strings.ContainsAny(w, "\"'[]{}="):
 			return w, false
 		case strings.EqualFold(w, "yes"), strings.EqualFold(w, "on"):
@@ -578,6 +580,15 @@ func tomlBareText(data []byte, row int) string {
 		return fmt.Sprintf("%s = %s: not a TOML value (write %s = %s)", key, value, key, written)
 	}
 	return fmt.Sprintf("%s = %s: text is written in quotes in TOML (write %s = %s)", key, value, key, written)
+}
+
+// isBareClock says whether w is a clock time "HH:MM" ("20:00", "5:30"),
+// which TOML refuses unquoted (the parser's "times are expected to have
+// the format HH:MM:SS").
+func isBareClock(w string) bool {
+	h, m, ok := strings.Cut(w, ":")
+	digits := func(s string) bool { return strings.Trim(s, "0123456789") == "" }
+	return ok && len(h) >= 1 && len(h) <= 2 && len(m) == 2 && digits(h) && digits(m)
 }
 
 // isBareDuration says whether w is a duration with its unit, "-30m" or

@@ -154,7 +154,7 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		if len(dups) > 0 {
 			return nil, newValidationError(dups)
 		}
-		return nil, fmt.Errorf("%w as %s: %s", ErrUnreadable, format, syntaxMessage(err, data))
+		return nil, fmt.Errorf("%w as %s: %s%s", ErrUnreadable, format, syntaxMessage(err, data), formatHint(data, format))
 	}
 	explicit := explicitWindows(v.Get("feeds"))
 	located := explicitCoordinates(v.Get("sites"))
@@ -169,6 +169,11 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		for i := range problems {
 			if problems[i].Value == "" { // a mapping or a list given as one value: name it
 				problems[i].Value = rawAt(settings, problems[i].Path)
+				if key, value, ok := yamlEquals(problems[i].Value); ok && format == "yaml" && problems[i].Hint == "" &&
+					strings.HasSuffix(problems[i].Msg, "not text") && !strings.Contains(value, "=") {
+					// "service:" and "listen = ':8080'" on the line below it: one text
+					problems[i].Hint = fmt.Sprintf("YAML writes a key with a colon, not =: %s: %s", key, value)
+				}
 			}
 		}
 	}
@@ -376,6 +381,61 @@ func readConfig(v *viper.Viper, data []byte, doc *yaml.Node) (err error) {
 		}
 	}
 	return v.ReadConfig(bytes.NewReader(data))
+}
+
+// tomlLine is a TOML table header ("[service]", "[[sites]]") or key/value
+// line ("listen = ':8080'"); neither is valid at the top of a YAML mapping
+// of heliocal's keys. Compiled at first use: most commands never need it.
+var tomlLine = sync.OnceValue(func() *regexp.Regexp {
+	return regexp.MustCompile(`^(\[\[?[A-Za-z0-9_."-]+\]\]?\s*(#.*)?|[A-Za-z0-9_."-]+\s*=.*)$`)
+})
+
+// yamlLine is a YAML key of heliocal's ("sites:", "service: {…}"), the
+// document marker "---" or a list item: no TOML or JSON line starts so.
+var yamlLine = sync.OnceValue(func() *regexp.Regexp {
+	return regexp.MustCompile(`^([A-Za-z_][A-Za-z0-9_-]*:(\s.*)?|---(\s.*)?|- .*)$`)
+})
+
+// SniffFormat tells the format of a configuration without a file name
+// (standard input) from its first significant line: "{" starts JSON, a
+// TOML table header or key = value line is TOML, anything else is read as
+// YAML.
+func SniffFormat(data []byte) string {
+	format, _, _ := sniff(data)
+	return format
+}
+
+// sniff is SniffFormat with the line (from 1) that tells the format, and
+// whether it shows it (false: YAML by default, no line like YAML's).
+func sniff(data []byte) (format string, line int, shown bool) {
+	for l := range bytes.Lines(data) {
+		line++
+		t := strings.TrimSpace(strings.TrimPrefix(string(l), "\ufeff"))
+		switch {
+		case t == "" || strings.HasPrefix(t, "#"):
+			continue
+		case strings.HasPrefix(t, "{"):
+			return "json", line, true
+		case tomlLine().MatchString(t):
+			return "toml", line, true
+		}
+		return "yaml", line, yamlLine().MatchString(t)
+	}
+	return "yaml", 0, false
+}
+
+// formatHint is what follows a syntax error of data read as format when
+// its first significant line is written in another format: the file's
+// name chose the format ("; line 1 is TOML, but the file's name makes it
+// read as YAML (rename it .toml, or write it in YAML)"); "" otherwise.
+func formatHint(data []byte, format string) string {
+	other, line, shown := sniff(data)
+	if !shown || other == format {
+		return ""
+	}
+	name := map[string]string{"yaml": "YAML", "toml": "TOML", "json": "JSON"}
+	return fmt.Sprintf("; line %d is %s, but the file's name makes it read as %s (rename it .%s, or write it in %s)",
+		line, name[other], name[format], other, name[format])
 }
 
 // syntaxMessage words a reader error on one line, with the line number
@@ -753,12 +813,28 @@ func yamlColonHint(lines [][]byte, n int) string {
 		if pt == "" || pt[0] == '#' {
 			continue
 		}
+		if key, value, ok := yamlEquals(pt); ok {
+			return fmt.Sprintf("line %d writes %s = %s, and YAML writes a key with a colon: %s: %s", p, key, value, key, value)
+		}
 		if len(l)-len(t) > len(prev)-len(pt) && !strings.HasSuffix(pt, ":") && !strings.HasPrefix(pt, "- ") {
 			return fmt.Sprintf("the line is indented deeper than line %d above it", p)
 		}
 		break
 	}
 	return ""
+}
+
+// yamlEquals reads t, a line of a YAML document without its indentation,
+// as a key written with TOML's "=" (`- id = "north-field"`, `listen =
+// ":8080"`), which YAML reads as text: the key and its value; false for
+// another line.
+func yamlEquals(t string) (key, value string, ok bool) {
+	body := strings.TrimSpace(strings.TrimPrefix(t, "- "))
+	if !tomlLine().MatchString(body) || strings.HasPrefix(body, "[") || strings.Contains(body, ": ") {
+		return "", "", false
+	}
+	key, value, _ = strings.Cut(body, "=")
+	return strings.TrimSpace(key), strings.TrimSpace(value), true
 }
 
 // yamlMisaligned finds the first line from line from on whose indentation

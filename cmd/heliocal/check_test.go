@@ -53,26 +53,6 @@ func TestConfigFromStdin(t *testing.T) {
 	}
 }
 
-func TestSniffFormat(t *testing.T) {
-	for text, want := range map[string]string{
-		"{\"sites\": []}":                      "json",
-		"\ufeff# comment\n\n  {":               "json",
-		"[service]\nlisten = \":8080\"":        "toml",
-		"# sites\n[[sites]]\nid = \"a\"":       "toml",
-		"title = \"x\"":                        "toml",
-		"sites:\n  - id: a":                    "yaml",
-		"---\nsites: []":                       "yaml",
-		"service: {listen: \":8080\"}":         "yaml",
-		"- just a list":                        "yaml",
-		"":                                     "yaml",
-		"feeds: [{id: \"a = b\", kinds: [x]}]": "yaml",
-	} {
-		if got := sniffFormat([]byte(text)); got != want {
-			t.Errorf("sniffFormat(%q) = %s, want %s", text, got, want)
-		}
-	}
-}
-
 // check --format json: one document a script can read, for a valid and for
 // an invalid configuration (then exit 2, and nothing on stderr).
 func TestCheckJSON(t *testing.T) {

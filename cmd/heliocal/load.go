@@ -1,14 +1,10 @@
 package main
 
 import (
-	"bufio"
 	"bytes"
 	"errors"
 	"fmt"
 	"io"
-	"regexp"
-	"strings"
-	"sync"
 
 	"heliocal/config"
 )
@@ -55,7 +51,7 @@ func loadConfig(g *globals) (*config.Config, config.Source, error) {
 }
 
 // parseStdin reads a whole configuration from r and parses it in the format
-// its text shows (see sniffFormat).
+// its text shows (see config.SniffFormat).
 func parseStdin(r io.Reader, env config.LookupEnv) (*config.Config, error) {
 	if r == nil {
 		return nil, errors.New("no standard input to read")
@@ -67,39 +63,10 @@ func parseStdin(r io.Reader, env config.LookupEnv) (*config.Config, error) {
 	if len(bytes.TrimSpace(data)) == 0 {
 		return nil, errors.New("standard input is empty; pipe a configuration into heliocal, e.g. heliocal check --config - < heliocal.yaml")
 	}
-	cfg, err := config.ParseEnv(bytes.NewReader(data), sniffFormat(data), env)
+	cfg, err := config.ParseEnv(bytes.NewReader(data), config.SniffFormat(data), env)
 	var ve *config.ValidationError
 	if errors.As(err, &ve) {
 		ve.Source = stdinSource
 	}
 	return cfg, err
-}
-
-// tomlLine is a TOML table header ("[service]", "[[sites]]") or key/value
-// line ("listen = ':8080'"); neither is valid at the top of a YAML mapping
-// of heliocal's keys. Compiled at first use: most commands never read a
-// configuration from standard input.
-var tomlLine = sync.OnceValue(func() *regexp.Regexp {
-	return regexp.MustCompile(`^(\[\[?[A-Za-z0-9_."-]+\]\]?\s*(#.*)?|[A-Za-z0-9_."-]+\s*=.*)$`)
-})
-
-// sniffFormat tells the format of a configuration without a file name from
-// its first significant line: "{" starts JSON, a TOML table header or
-// key = value line is TOML, anything else is read as YAML.
-func sniffFormat(data []byte) string {
-	sc := bufio.NewScanner(bytes.NewReader(data))
-	sc.Buffer(nil, len(data)+1)
-	for sc.Scan() {
-		line := strings.TrimSpace(strings.TrimPrefix(sc.Text(), "\ufeff"))
-		switch {
-		case line == "" || strings.HasPrefix(line, "#"):
-			continue
-		case strings.HasPrefix(line, "{"):
-			return "json"
-		case tomlLine().MatchString(line):
-			return "toml"
-		}
-		return "yaml"
-	}
-	return "yaml"
 }

@@ -1,0 +1,75 @@
+package config
+
+import (
+	"errors"
+	"strings"
+	"testing"
+)
+
+// A configuration without a file name (standard input) is read in the
+// format its first significant line shows.
+func TestSniffFormat(t *testing.T) {
+	for text, want := range map[string]string{
+		"{\"sites\": []}":                      "json",
+		"\ufeff# comment\n\n  {":               "json",
+		"[service]\nlisten = \":8080\"":        "toml",
+		"# sites\n[[sites]]\nid = \"a\"":       "toml",
+		"title = \"x\"":                        "toml",
+		"sites:\n  - id: a":                    "yaml",
+		"---\nsites: []":                       "yaml",
+		"service: {listen: \":8080\"}":         "yaml",
+		"- just a list":                        "yaml",
+		"":                                     "yaml",
+		"feeds: [{id: \"a = b\", kinds: [x]}]": "yaml",
+	} {
+		if got := SniffFormat([]byte(text)); got != want {
+			t.Errorf("SniffFormat(%q) = %s, want %s", text, got, want)
+		}
+	}
+}
+
+// A file written in another format than its name says (TOML or JSON in a
+// .yaml file, YAML in a .toml or .json one) is told so after the syntax
+// error, with the line that shows it: the error alone ("the document is a
+// list", "expected character =") does not say what is wrong. A syntax error
+// in a file of its own format, or in one whose first line shows no format,
+// gets no such hint.
+func TestOtherFormatHint(t *testing.T) {
+	for _, tc := range []struct{ format, in, want string }{
+		{"yaml", "# farm\n[[sites]]\nid = \"north-field\"\nlatitude = 47.5\n",
+			"cannot read the file as yaml: line 2: the document is a list, not a mapping of keys (a configuration starts with keys such as sites: and feeds:); line 2 is TOML, but the file's name makes it read as YAML (rename it .toml, or write it in YAML)"},
+		{"toml", "sites:\n  - id: north-field\n",
+			"cannot read the file as toml: line 1, column 6: toml: expected character =; line 1 is YAML, but the file's name makes it read as TOML (rename it .yaml, or write it in TOML)"},
+		{"json", "sites:\n  - id: north-field\n",
+			"cannot read the file as json: line 1: invalid character 's' looking for beginning of value; line 1 is YAML, but the file's name makes it read as JSON (rename it .yaml, or write it in JSON)"},
+		{"json", "[service]\nlisten = \":8080\"\n",
+			"cannot read the file as json: line 1: invalid character 's' looking for beginning of value; line 1 is TOML, but the file's name makes it read as JSON (rename it .toml, or write it in JSON)"},
+		{"toml", "[[sites]]\nid = north\n",
+			`cannot read the file as toml: line 2: id = north: text is written in quotes in TOML (write id = "north")`},
+		{"json", "{\"sites\": [}\n",
+			"cannot read the file as json: line 1: invalid character '}' looking for beginning of value"},
+		{"toml", "(sites)\n",
+			"cannot read the file as toml: line 1, column 1: toml: invalid character at start of key: ("},
+	} {
+		_, err := Parse(strings.NewReader(tc.in), tc.format)
+		if !errors.Is(err, ErrUnreadable) || err.Error() != tc.want {
+			t.Errorf("%s %q:\n%v\nwant\n%s", tc.format, tc.in, err, tc.want)
+		}
+	}
+}
+
+// A key written with TOML's "=" in a YAML file is read by YAML as text: the
+// error that follows, on that line or the next, says how YAML writes it.
+func TestYAMLEqualsHint(t *testing.T) {
+	_, err := Parse(strings.NewReader("sites:\n  - id = \"north-field\"\n    latitude: 47.5\n"), "yaml")
+	want := `cannot read the file as yaml: yaml: line 3: mapping values are not allowed in this context (line 2 writes id = "north-field", and YAML writes a key with a colon: id: "north-field")`
+	if !errors.Is(err, ErrUnreadable) || err.Error() != want {
+		t.Errorf("%v\nwant\n%s", err, want)
+	}
+	_, err = Parse(strings.NewReader("service:\n  listen = \":8080\"\nsites:\n  - {id: x, latitude: 1, longitude: 2, timezone: UTC}\nfeeds:\n  - {id: f, site: x, kinds: [sunrise]}\n"), "yaml")
+	got := problemsOf(t, err)
+	wantP := FieldError{Path: "service", Value: `listen = ":8080"`, Msg: "must be a mapping of keys, not text", Hint: `YAML writes a key with a colon, not =: listen: ":8080"`}
+	if len(got) != 1 || got[0] != wantP {
+		t.Errorf("problems %+v, want %+v", got, wantP)
+	}
+}

@@ -259,6 +259,9 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-oversize.yaml", "service.oversize", "shrink", "must be warn, trim or fail", "", 0},
 		{"unknown-key.yaml", "sites[0].lattitude", "lattitude", "unknown key", `did you mean "latitude"?`, 0},
 		{"unknown-top-key.yaml", "feed", "feed", "unknown key", `did you mean "feeds"?`, 0},
+		// a key of another place is said to be one
+		{"misplaced-key.yaml", "feeds[0].timezone", "timezone", "unknown key", "timezone is a key of a site; known keys here: id, title,", 0},
+		{"misplaced-alarm.yaml", "sites[0].alarm", "alarm", "unknown key", "alarm is a key of a feed, a kinds entry ({kind: …}) or a plan; known keys here: id, name,", 0},
 		{"bad-bool.yaml", "feeds[0].utc", `"yes"`, "must be true or false", "write true, without quotes", 0},
 		{"bad-days-fraction.yaml", "feeds[0].days_ahead", "36.5", "must be a whole number", "write 36 or 37", 0},
 		{"duplicate-kind.yaml", "feeds[0].kinds[1]", "june-solstice", `"june-solstice" listed twice, also in "seasons" at feeds[0].kinds[0]`, "", 0},

@@ -1381,13 +1381,44 @@ func problemFor(path string, err error) []FieldError {
 			}
 			fe := FieldError{Path: p, Value: key, Msg: "unknown key"}
 			if len(keys) > 0 {
-				fe.Hint = nearValue(key, keys, "known keys here: "+strings.Join(keys, ", "))
+				fe.Hint = nearValue(key, keys, keyElsewhere(key)+"known keys here: "+strings.Join(keys, ", "))
 			}
 			out = append(out, fe)
 		}
 		return out
 	}
 	return []FieldError{{Path: shown, Msg: oneLine(msg)}}
+}
+
+// keySections are the places a key is written, with the words that name
+// them in keyElsewhere.
+var keySections = []struct{ path, words string }{
+	{"", "the top of the file"},
+	{"service", "service:"},
+	{"page", "page:"},
+	{"sites", "a site"},
+	{"feeds", "a feed"},
+	{"feeds.kinds", "a kinds entry ({kind: …})"},
+	{"feeds.plans", "a plan"},
+}
+
+// keyElsewhere says where the key written in the wrong place belongs
+// ("listen is a key of service:; "): a site's timezone written in a feed,
+// a service's listen in a site; "" for a key of no place.
+func keyElsewhere(key string) string {
+	var where []string
+	for _, sec := range keySections {
+		if slices.Contains(keysAt(sec.path), strings.ToLower(key)) {
+			where = append(where, sec.words)
+		}
+	}
+	switch len(where) {
+	case 0:
+		return ""
+	case 1:
+		return key + " is a key of " + where[0] + "; "
+	}
+	return key + " is a key of " + strings.Join(where[:len(where)-1], ", ") + " or " + where[len(where)-1] + "; "
 }
 
 // rawAt returns, as text, the single value written at a decoder path such

@@ -3,7 +3,9 @@ package config
 import (
 	_ "embed"
 	"fmt"
+	"regexp"
 	"slices"
+	"strconv"
 	"strings"
 	"sync"
 	"time"
@@ -110,6 +112,9 @@ func ZoneHint(name string) string {
 	if n == "" {
 		return generic
 	}
+	if hint := offsetHint(strings.TrimSpace(name)); hint != "" {
+		return hint
+	}
 	for _, z := range zoneNames() {
 		if strings.EqualFold(z, n) {
 			return didYouMean(z)
@@ -125,4 +130,35 @@ func ZoneHint(name string) string {
 		return didYouMean(near)
 	}
 	return generic
+}
+
+// utcOffset is a UTC offset written as a zone: "+01:00", "UTC+1",
+// "GMT-05:00", "-0330".
+var utcOffset = sync.OnceValue(func() *regexp.Regexp {
+	return regexp.MustCompile(`^(?i:UTC|GMT)?\s*([+-])([0-9]{1,2})(?::?([0-9]{2}))?$`)
+})
+
+// offsetHint says that name, a UTC offset, is no zone: a place's zone
+// follows its clock changes, and a fixed offset of whole hours is the tz
+// database's Etc/GMT zone of the opposite sign (its file etcetera: "Etc/GMT-1"
+// is one hour ahead of UTC); "" for a name that is no offset.
+func offsetHint(name string) string {
+	m := utcOffset().FindStringSubmatch(name)
+	if m == nil {
+		return ""
+	}
+	hint := "a UTC offset is not a time zone: write the place's zone, such as \"Europe/Paris\", which follows its clock changes"
+	h, _ := strconv.Atoi(m[2])
+	if m[3] != "" && m[3] != "00" {
+		return hint
+	}
+	sign := map[string]string{"+": "-", "-": "+"}[m[1]]
+	if h == 0 {
+		return hint + `; UTC itself is "UTC"`
+	}
+	etc := fmt.Sprintf("Etc/GMT%s%d", sign, h)
+	if _, err := loadZone(etc); err == nil {
+		hint += fmt.Sprintf("; a fixed offset of %s%d h is %q, its sign inverted as the tz database writes it", m[1], h, etc)
+	}
+	return hint
 }

@@ -16,6 +16,13 @@ func TestZoneHint(t *testing.T) {
 		{"America/New York", `did you mean "America/New_York"?`}, // space for underscore
 		{"Pacific/Aukland", `did you mean "Pacific/Auckland"?`},
 		{"Mars/Olympus_Mons", `use an IANA name such as "Europe/Vienna"`},
+		// a UTC offset: the tz database's Etc/GMT zones have the sign of
+		// POSIX TZ strings, "Etc/GMT-1" one hour ahead of UTC (IANA tz
+		// database, file etcetera)
+		{"+01:00", `a UTC offset is not a time zone: write the place's zone, such as "Europe/Paris", which follows its clock changes; a fixed offset of +1 h is "Etc/GMT-1", its sign inverted`},
+		{"UTC-5", `a fixed offset of -5 h is "Etc/GMT+5"`},
+		{"GMT+05:30", `a UTC offset is not a time zone`},
+		{"+00:00", `UTC itself is "UTC"`},
 	}
 	for _, tc := range tests {
 		var z Zone

@@ -12,6 +12,12 @@ type File struct {
 	Data        []byte
 	Checksum    string // lower-case hex SHA-256 of Data
 	ModTime     time.Time
+	// Gzip is the file's gzip form when the bundle holds the file in that
+	// form alone (RenderOptions.Gzip): Data is nil then, and Checksum and
+	// Size still describe the bytes Gzip decompresses to.
+	Gzip []byte
+	// Size is the length of the file's bytes, len(Data) when Data is set.
+	Size int
 }
 
 // FeedInfo describes one feed in feeds.json and on the index page.

@@ -123,7 +123,7 @@ func (l *listing) manifest(sh Shard, digest string) (File, error) {
 	if err != nil {
 		return File{}, err
 	}
-	return File{Name: ManifestName(sh), ContentType: ContentTypeJSON, Data: b, Checksum: checksum(b), ModTime: l.generated}, nil
+	return File{Name: ManifestName(sh), ContentType: ContentTypeJSON, Data: b, Checksum: checksum(b), ModTime: l.generated, Size: len(b)}, nil
 }
 
 // runDigest fingerprints a run: the whole configuration's feed ids (every
@@ -354,7 +354,7 @@ func (w *Writer) shardListing(ctx context.Context, srcs []Source, opts *RenderOp
 	if err != nil {
 		return nil, false, err
 	}
-	return []File{{Name: FeedsJSONName, ContentType: ContentTypeJSON, Data: b, Checksum: checksum(b), ModTime: l.generated}}, false, nil
+	return []File{{Name: FeedsJSONName, ContentType: ContentTypeJSON, Data: b, Checksum: checksum(b), ModTime: l.generated, Size: len(b)}}, false, nil
 }
 
 // readManifests reads the manifests of every shard of n in dir that belong to

@@ -1,6 +1,7 @@
 package publish
 
 import (
+	"bytes"
 	"context"
 	"crypto/sha256"
 	"encoding/hex"
@@ -123,6 +124,15 @@ type RenderOptions struct {
 	Oversize string
 	// Progress, when set, is told about every feed (a bar on a terminal).
 	Progress *Progress
+	// Gzip, when set, makes Render keep each feed in the form it returns,
+	// made as soon as the feed is rendered: its gzip form (File.Gzip, with
+	// File.Data nil), or nil to keep the bytes themselves (a copy in
+	// File.Data). It is called on the goroutine that rendered the feed,
+	// with the feed's file, whose Data is that goroutine's buffer, reused
+	// for its next feed once Gzip returns. Render then holds no more than a
+	// few feeds' bytes at once, instead of every feed's before their
+	// compressed forms are made. Publish does not call it.
+	Gzip func(f *File) []byte
 }
 
 func (o *RenderOptions) workers() int {
@@ -170,6 +180,7 @@ type rendered struct {
 	data      []byte // the encoder's buffer, file.Data on success
 	stamp     time.Time
 	staged    stagedFeed // what renderAll's work did with the bytes
+	kept      []byte     // what renderAll's work kept of them: file.Data after it
 }
 
 // select returns the sources of the run's shard, checking ids.
@@ -246,7 +257,7 @@ func renderOne(ctx context.Context, s Source, enc encodeFunc, base *url.URL, dst
 		trimmedTo: cal.TrimmedTo,
 		site:      cal.Site,
 		src:       s,
-		file:      File{Name: name, ContentType: ContentTypeICS, Data: data, Checksum: sum, ModTime: cal.Stamp.UTC()},
+		file:      File{Name: name, ContentType: ContentTypeICS, Data: data, Checksum: sum, ModTime: cal.Stamp.UTC(), Size: len(data)},
 		data:      data,
 		stamp:     cal.Stamp,
 	}, nil
@@ -259,8 +270,9 @@ func renderOne(ctx context.Context, s Source, enc encodeFunc, base *url.URL, dst
 // With work set, each worker calls it on its goroutine with each feed it has
 // rendered, before the feed goes to emit: there the feed's bytes are in the
 // worker's own buffer, reused for its next feed, so emit sees the feed
-// without its bytes (file.Data nil). Without work every feed gets a buffer
-// of its own, kept in file.Data.
+// without its bytes (file.Data is what work left in rendered.kept, nil
+// unless it kept a copy). Without work every feed gets a buffer of its own,
+// kept in file.Data.
 func renderAll(ctx context.Context, srcs []Source, opts *RenderOptions, work func(*rendered) error, emit func(rendered) error) error {
 	base, err := opts.base()
 	if err != nil {
@@ -305,7 +317,7 @@ func renderAll(ctx context.Context, srcs []Source, opts *RenderOptions, work fun
 					if err == nil {
 						err = work(&r)
 					}
-					r.file.Data, r.data = nil, nil
+					r.file.Data, r.data, r.kept = r.kept, nil, nil
 				}
 				results[i] <- result{r, err}
 			}
@@ -425,15 +437,16 @@ func (l *listing) indexFiles(ctx context.Context, opts *RenderOptions) ([]File, 
 		return nil, err
 	}
 	return []File{
-		{Name: FeedsJSONName, ContentType: ContentTypeJSON, Data: fj, Checksum: checksum(fj), ModTime: l.generated},
-		{Name: IndexName, ContentType: ContentTypeHTML, Data: html, Checksum: checksum(html), ModTime: l.generated},
+		{Name: FeedsJSONName, ContentType: ContentTypeJSON, Data: fj, Checksum: checksum(fj), ModTime: l.generated, Size: len(fj)},
+		{Name: IndexName, ContentType: ContentTypeHTML, Data: html, Checksum: checksum(html), ModTime: l.generated, Size: len(html)},
 	}, nil
 }
 
 // Render builds every feed of the run in memory: the .ics files, feeds.json
 // and index.html (or, for a shard, its manifest; see Publish). feed/serve
-// holds the result; for writing a large configuration to disk, Publish keeps
-// memory bounded instead. Files are sorted by name.
+// holds the result, each feed in its gzip form (RenderOptions.Gzip); for
+// writing a large configuration to disk, Publish keeps memory bounded
+// instead. Files are sorted by name.
 func Render(ctx context.Context, srcs []Source, opts RenderOptions) (*Bundle, error) {
 	sel, err := selectSources(srcs, opts.Shard)
 	if err != nil {
@@ -442,7 +455,16 @@ func Render(ctx context.Context, srcs []Source, opts RenderOptions) (*Bundle, er
 	var l listing
 	var files []File
 	var stamps []time.Time
-	err = renderAll(ctx, sel, &opts, nil, func(r rendered) error {
+	var work func(*rendered) error
+	if opts.Gzip != nil {
+		work = func(r *rendered) error {
+			if r.file.Gzip = opts.Gzip(&r.file); r.file.Gzip == nil {
+				r.kept = bytes.Clone(r.data)
+			}
+			return nil
+		}
+	}
+	err = renderAll(ctx, sel, &opts, work, func(r rendered) error {
 		l.add(r) // with the feed shortened, if it was (l.trimmed)
 		files = append(files, r.file)
 		stamps = append(stamps, r.stamp)

@@ -1,10 +1,14 @@
 package publish
 
 import (
+	"bytes"
+	"compress/gzip"
 	"context"
 	"errors"
 	"fmt"
+	"io"
 	"os"
+	"reflect"
 	"sort"
 	"strings"
 	"sync"
@@ -110,5 +114,78 @@ func TestPublishBuildError(t *testing.T) {
 	cancel()
 	if _, err := Publish(ctx, Calendars(testCalendars(t, "")...), testOptions(), &Writer{Dir: dir}); !errors.Is(err, context.Canceled) {
 		t.Errorf("cancelled publish: %v", err)
+	}
+}
+
+// With RenderOptions.Gzip, Render keeps each feed in the form Gzip gives
+// it, made from the feed's bytes as soon as they are rendered: its gzip
+// form alone (Data nil) or, when Gzip gives none, a copy of the bytes that
+// outlives the buffer the worker renders its next feed into. Either way the
+// bundle states the same feeds, sums and sizes as one rendered without it,
+// and feeds.json and index.html are kept as they are.
+func TestRenderGzip(t *testing.T) {
+	cals := testCalendars(t, "")
+	opts := testOptions()
+	opts.Workers = 1 // one buffer for every feed: a kept copy must not share it
+	whole, err := Render(context.Background(), Calendars(cals...), opts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	keep := cals[0].ID + ".ics" // kept whole: Gzip gives no gzip form
+	var mu sync.Mutex
+	called := map[string]bool{}
+	opts.Gzip = func(f *File) []byte {
+		mu.Lock()
+		defer mu.Unlock()
+		called[f.Name] = true
+		if w := whole.File(f.Name); w == nil || !bytes.Equal(f.Data, w.Data) || f.Checksum != w.Checksum || f.Size != len(w.Data) {
+			t.Errorf("Gzip given %s of %d bytes (size %d, sum %s), not the feed's", f.Name, len(f.Data), f.Size, f.Checksum)
+		}
+		if f.Name == keep {
+			return nil
+		}
+		var b bytes.Buffer
+		zw := gzip.NewWriter(&b)
+		zw.Write(f.Data)
+		zw.Close()
+		return b.Bytes()
+	}
+	held, err := Render(context.Background(), Calendars(cals...), opts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !reflect.DeepEqual(held.Feeds, whole.Feeds) || len(held.Files) != len(whole.Files) {
+		t.Fatalf("feeds %+v, files %d; want %+v, %d as rendered without Gzip", held.Feeds, len(held.Files), whole.Feeds, len(whole.Files))
+	}
+	for i, f := range held.Files {
+		w := whole.Files[i]
+		if f.Name != w.Name || f.ContentType != w.ContentType || f.Checksum != w.Checksum || !f.ModTime.Equal(w.ModTime) || f.Size != len(w.Data) {
+			t.Errorf("file %d: %s %q sum %s size %d at %v; want %s %q sum %s size %d at %v",
+				i, f.Name, f.ContentType, f.Checksum, f.Size, f.ModTime, w.Name, w.ContentType, w.Checksum, len(w.Data), w.ModTime)
+		}
+		isFeed := strings.HasSuffix(f.Name, ".ics")
+		if isFeed != called[f.Name] {
+			t.Errorf("%s: Gzip called %v, want %v", f.Name, called[f.Name], isFeed)
+		}
+		got := f.Data
+		switch {
+		case !isFeed || f.Name == keep:
+			if f.Gzip != nil {
+				t.Errorf("%s: held with a gzip form", f.Name)
+			}
+		case f.Data != nil || f.Gzip == nil:
+			t.Errorf("%s: held with %d bytes and a gzip form of %d, want its gzip form alone", f.Name, len(f.Data), len(f.Gzip))
+		default:
+			zr, err := gzip.NewReader(bytes.NewReader(f.Gzip))
+			if err != nil {
+				t.Fatalf("%s: %v", f.Name, err)
+			}
+			if got, err = io.ReadAll(zr); err != nil {
+				t.Fatalf("%s: %v", f.Name, err)
+			}
+		}
+		if !bytes.Equal(got, w.Data) {
+			t.Errorf("%s: holds %d bytes that differ from the %d rendered without Gzip", f.Name, len(got), len(w.Data))
+		}
 	}
 }

@@ -135,7 +135,7 @@ func BenchmarkAdhocRequest(b *testing.B) {
 	set := func() adhocSettings { return adhocSettings{layout: newLayout(""), refresh: 24 * time.Hour} }
 	srv, err := serve.New(serve.Options{
 		Logger:            slog.New(slog.DiscardHandler),
-		Build:             func(context.Context) (*publish.Bundle, error) { return &publish.Bundle{}, nil },
+		Build:             func(context.Context, serve.GzipFunc) (*publish.Bundle, error) { return &publish.Bundle{}, nil },
 		Adhoc:             adhocFeedFrom(set),
 		AdhocDefaultKinds: []string{"sunrise", "sunset", "civil-dawn", "civil-dusk"},
 	})
@@ -254,7 +254,7 @@ func previewServer(b *testing.B, kinds ...string) http.Handler {
 	set := func() adhocSettings { return adhocSettings{layout: newLayout(""), refresh: 24 * time.Hour} }
 	srv, err := serve.New(serve.Options{
 		Logger:            slog.New(slog.DiscardHandler),
-		Build:             func(context.Context) (*publish.Bundle, error) { return &publish.Bundle{}, nil },
+		Build:             func(context.Context, serve.GzipFunc) (*publish.Bundle, error) { return &publish.Bundle{}, nil },
 		Adhoc:             adhocFeedFrom(set),
 		Preview:           adhocCalendarFrom(set),
 		AdhocDefaultKinds: kinds,

@@ -111,11 +111,12 @@ func reloadServe(ctx context.Context, g *globals, log *slog.Logger, srv *serve.S
 func serveBuild(cfg *config.Config, base string, log *slog.Logger) serve.BuildFunc {
 	var mu sync.Mutex
 	logged := map[string]bool{} // what the latest build warned about: lamp limits, feeds shortened or over the limit
-	return func(ctx context.Context) (*publish.Bundle, error) {
+	return func(ctx context.Context, gzip serve.GzipFunc) (*publish.Bundle, error) {
 		srcs, opts, err := build(cfg, time.Now(), newLayout(base))
 		if err != nil {
 			return nil, err
 		}
+		opts.Gzip = gzip // each feed held in its gzip form from the moment it is rendered
 		lamps := &lampWatch{}
 		lamps.watch(cfg, srcs)
 		b, err := publish.Render(ctx, srcs, opts)

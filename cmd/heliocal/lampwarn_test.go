@@ -207,7 +207,7 @@ func TestPublishLampLimitWarning(t *testing.T) {
 // before: the same limits again log nothing.
 func TestServeLampLimitWarning(t *testing.T) {
 	b, warned := serveWarnings(t, havanaLamps)
-	if _, err := b(context.Background()); err != nil {
+	if _, err := b(context.Background(), nil); err != nil {
 		t.Fatal(err)
 	}
 	// serve's window starts today: any year ahead has summer time at
@@ -217,7 +217,7 @@ func TestServeLampLimitWarning(t *testing.T) {
 	if len(want) != 2 || !slices.Equal(got, want) {
 		t.Fatalf("first build logged\n%s\nwant check's\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
 	}
-	if _, err := b(context.Background()); err != nil {
+	if _, err := b(context.Background(), nil); err != nil {
 		t.Fatal(err)
 	}
 	if got := warned(); len(got) != 2 {

@@ -68,7 +68,7 @@ func TestOversizeWarningOneForm(t *testing.T) {
 func TestServeOversizeWarning(t *testing.T) {
 	b, warned := serveWarnings(t, meadowOversize)
 	for range 2 {
-		bundle, err := b(context.Background())
+		bundle, err := b(context.Background(), nil)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -89,7 +89,7 @@ func TestServeTrimNote(t *testing.T) {
 	yaml := strings.Replace(meadowOversize, "max_feed_bytes: 20000\n", "max_feed_bytes: 20000\n  oversize: trim\n", 1)
 	b, warned := serveWarnings(t, yaml)
 	for range 2 {
-		if _, err := b(context.Background()); err != nil {
+		if _, err := b(context.Background(), nil); err != nil {
 			t.Fatal(err)
 		}
 	}

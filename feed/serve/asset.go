@@ -26,12 +26,15 @@ import (
 
 // asset is one servable representation set: the bytes, their gzip form when
 // that is worth it, and the header values, all computed once at swap time so
-// a hot request neither hashes nor compresses.
+// a hot request neither hashes nor compresses. A feed, configured or ad-hoc,
+// is held in its gzip form alone when it has one (data nil): a client that
+// does not take gzip gets it decompressed (see writeAsset).
 type asset struct {
 	name    string
-	data    []byte
+	data    []byte // nil when a feed is held in its gzip form alone
 	gz      []byte // nil when gzip would not help
-	sum     string // hex SHA-256 of data (for an ad-hoc feed: see adhocSum)
+	size    int    // the length of the bytes: len(data), or of gz decompressed
+	sum     string // hex SHA-256 of the bytes (for an ad-hoc feed: see adhocSum)
 	modTime time.Time
 
 	// Header values, each a one-element slice with cap 1, shared read-only
@@ -63,14 +66,61 @@ func newAsset(name, contentType string, data []byte, mod time.Time, prev *asset)
 	var gz []byte
 	switch {
 	case prev != nil && prev.sum == hexSum:
-		gz, mod = prev.gz, prev.modTime
+		gz = prev.gz
 	case len(data) >= minGzip:
 		gz = gzipBytes(data)
 	}
-	if prev != nil && prev.sum != hexSum && !mod.IsZero() && !mod.After(prev.modTime) {
-		mod = prev.modTime.Add(time.Second)
+	return assetOf(name, contentType, data, len(data), modSince(prev, hexSum, mod), hexSum, gz)
+}
+
+// modSince is the modification time of bytes of SHA-256 sum that are
+// served from mod on, replacing prev (nil: none), as newAsset states it.
+func modSince(prev *asset, sum string, mod time.Time) time.Time {
+	switch {
+	case prev == nil:
+		return mod
+	case prev.sum == sum:
+		return prev.modTime
+	case !mod.IsZero() && !mod.After(prev.modTime):
+		return prev.modTime.Add(time.Second)
 	}
-	return assetOf(name, contentType, data, mod, hexSum, gz)
+	return mod
+}
+
+// heldAsset is the asset of a bundle's feed that the build kept in its
+// gzip form alone (publish.File.Gzip, made by a GzipFunc), modified at mod
+// unless prev holds the same bytes (see newAsset). Its sum is the one the
+// bundle states: the bytes are not at hand to hash again.
+func heldAsset(f *publish.File, mod time.Time, prev *asset) (*asset, error) {
+	sum := strings.ToLower(f.Checksum)
+	if len(sum) != 2*sha256.Size {
+		return nil, fmt.Errorf("serve: bundle file %q: held in its gzip form with checksum %q, not a SHA-256", f.Name, f.Checksum)
+	}
+	if f.Size <= 0 {
+		return nil, fmt.Errorf("serve: bundle file %q: held in its gzip form with size %d", f.Name, f.Size)
+	}
+	return assetOf(f.Name, f.ContentType, nil, f.Size, modSince(prev, sum, mod), sum, f.Gzip), nil
+}
+
+// feedGzip is publish.RenderOptions.Gzip for a build that replaces prev
+// (nil: none): the gzip form of a feed's bytes, at the default level, or
+// prev's form of the same bytes, compressed once; nil when gzip would not
+// help. It keeps a build from holding every feed's bytes at once: for the
+// 1,000 feeds of 1.1 MB each of tools/fleet that took 1.1 GB, held until
+// the snapshot was made, and held again beside the served snapshot during
+// a reload.
+func feedGzip(prev *snapshot) GzipFunc {
+	return func(f *publish.File) []byte {
+		if prev != nil {
+			if p := prev.files[f.Name]; p != nil && strings.EqualFold(p.sum, f.Checksum) {
+				return p.gz
+			}
+		}
+		if len(f.Data) < minGzip {
+			return nil
+		}
+		return gzipBytes(f.Data)
+	}
 }
 
 // newAdhocAsset is newAsset for an ad-hoc feed, built for the request that
@@ -87,18 +137,18 @@ func newAdhocAsset(name string, data []byte, mod time.Time) *asset {
 	if len(data) >= minGzip {
 		gz = gzipFast(data)
 	}
-	return adhocAssetOf(name, data, gz, mod)
+	return adhocAssetOf(name, data, gz, len(data), mod)
 }
 
-// adhocAssetOf is the ad-hoc asset of gz, the compressed form of a feed,
-// or of a copy of data, the feed itself, when gz is nil (see
+// adhocAssetOf is the ad-hoc asset of gz, the compressed form of a feed of
+// size bytes, or of a copy of data, the feed itself, when gz is nil (see
 // newAdhocAsset).
-func adhocAssetOf(name string, data, gz []byte, mod time.Time) *asset {
+func adhocAssetOf(name string, data, gz []byte, size int, mod time.Time) *asset {
 	named, kept := gz, []byte(nil)
 	if gz == nil {
 		named, kept = data, bytes.Clone(data)
 	}
-	return assetOf(name, "", kept, mod, adhocSum(named), gz)
+	return assetOf(name, "", kept, size, mod, adhocSum(named), gz)
 }
 
 // adhocSum names an ad-hoc feed in its ETags: the 64-bit xxHash of b (its
@@ -114,16 +164,21 @@ func adhocSum(b []byte) string {
 	return hex.EncodeToString(sum[:])
 }
 
-// gunzipReader is the decompressed form of gz, inflated on the first read
-// or seek: a conditional request answered 304 never inflates it.
+// gunzipReader is the decompressed form of gz, size bytes long, inflated
+// on the first read or on a seek to other than its start or end: a
+// conditional request answered 304 or a HEAD (http.ServeContent seeks to
+// the end and back for the size) never inflates it.
 type gunzipReader struct {
-	gz []byte
-	r  *bytes.Reader
+	gz   []byte
+	size int64
+	off  int64 // the offset sought before r was made
+	r    *bytes.Reader
 }
 
 func (g *gunzipReader) open() {
 	if g.r == nil {
 		g.r = bytes.NewReader(gunzip(g.gz))
+		g.r.Seek(g.off, io.SeekStart) // within the bytes: cannot fail
 	}
 }
 
@@ -143,14 +198,38 @@ func gunzip(gz []byte) []byte {
 func (g *gunzipReader) Read(p []byte) (int, error) { g.open(); return g.r.Read(p) }
 
 func (g *gunzipReader) Seek(off int64, whence int) (int64, error) {
+	if g.r == nil && off == 0 && whence != io.SeekCurrent {
+		g.off = 0
+		if whence == io.SeekEnd {
+			g.off = g.size
+		}
+		return g.off, nil
+	}
 	g.open()
 	return g.r.Seek(off, whence)
 }
 
-// assetOf is the asset of data, its gzip form gz (nil: none) and the hex
-// sum that names them (the SHA-256 of data, or adhocSum).
-func assetOf(name, contentType string, data []byte, mod time.Time, sum string, gz []byte) *asset {
-	a := &asset{name: name, data: data, gz: gz, sum: sum, modTime: mod}
+// gunzipTo writes the decompressed form of gz to w as it is inflated,
+// without holding it whole.
+func gunzipTo(w io.Writer, gz []byte) error {
+	zr := gunzipReaders.Get().(*kgzip.Reader)
+	defer gunzipReaders.Put(zr)
+	if err := zr.Reset(bytes.NewReader(gz)); err != nil {
+		panic(fmt.Sprintf("serve: decompressing a feed: %v", err)) // gz was compressed here
+	}
+	_, err := zr.WriteTo(w)
+	return err
+}
+
+// gunzipReaders are reused: a decompressor holds tens of kilobytes of
+// tables and window.
+var gunzipReaders = sync.Pool{New: func() any { return new(kgzip.Reader) }}
+
+// assetOf is the asset of bytes of length size, held as data or, when data
+// is nil, as their gzip form gz (nil: none), and the hex sum that names
+// them (their SHA-256, or adhocSum).
+func assetOf(name, contentType string, data []byte, size int, mod time.Time, sum string, gz []byte) *asset {
+	a := &asset{name: name, data: data, gz: gz, size: size, sum: sum, modTime: mod}
 	a.contentType = hdr(contentTypeFor(name, contentType))
 	a.etag = hdr(`"` + a.sum + `"`)
 	a.gzETag = hdr(`"` + a.sum + `-gz"`)
@@ -293,6 +372,10 @@ func prepare(b *publish.Bundle, prev *snapshot, now time.Time) (*snapshot, error
 				var p *asset
 				if prev != nil {
 					p = prev.files[f.Name]
+				}
+				if f.Data == nil && f.Gzip != nil {
+					assets[i], errs[i] = heldAsset(f, mod, p)
+					continue
 				}
 				a := newAsset(f.Name, f.ContentType, f.Data, mod, p)
 				if f.Checksum != "" && !strings.EqualFold(f.Checksum, a.sum) {

@@ -5,8 +5,72 @@ import (
 	"io"
 	"net/http"
 	"net/http/httptest"
+	"strings"
 	"testing"
+	"time"
+
+	"heliocal/config"
+	"heliocal/feed"
+	"heliocal/feed/publish"
+	"heliocal/internal/fleet"
 )
+
+// fleetBundle renders the first site of tools/fleet's fleet (internal/fleet):
+// one feed of the daily kinds over 400 days, about 1.1 MB, its name and
+// bytes, and the bundle, with gzip as its RenderOptions.Gzip.
+func fleetBundle(tb testing.TB, gzip GzipFunc) (name string, data []byte, b *publish.Bundle) {
+	tb.Helper()
+	cfg, err := config.Parse(strings.NewReader(fleet.YAML(1)), "yaml")
+	if err != nil {
+		tb.Fatal(err)
+	}
+	cat, err := feed.NewCatalogue(cfg, feed.Options{Now: time.Date(2027, 3, 20, 12, 0, 0, 0, time.UTC), Refresh: 24 * time.Hour})
+	if err != nil {
+		tb.Fatal(err)
+	}
+	f := &cfg.Feeds[0]
+	srcs := []publish.Source{{ID: f.ID, Build: func(ctx context.Context) (*feed.Calendar, error) { return cat.Calendar(ctx, f) }}}
+	whole, err := publish.Render(context.Background(), srcs, publish.RenderOptions{MaxFeedBytes: -1})
+	if err != nil {
+		tb.Fatal(err)
+	}
+	if b, err = publish.Render(context.Background(), srcs, publish.RenderOptions{MaxFeedBytes: -1, Gzip: gzip}); err != nil {
+		tb.Fatal(err)
+	}
+	name = f.ID + ".ics"
+	return name, whole.File(name).Data, b
+}
+
+// BenchmarkServeFeedIdentity: the handler's cost for a full response to a
+// client that does not take gzip, of a 400-day feed of the daily kinds
+// (about 1.1 MB): held in its gzip form and inflated into the response, as
+// serve holds a configured feed, and held whole, as it held one before.
+func BenchmarkServeFeedIdentity(b *testing.B) {
+	name, data, held := fleetBundle(b, feedGzip(nil))
+	whole := &publish.Bundle{Files: []publish.File{file(name, "", data)}}
+	for _, tc := range []struct {
+		form   string
+		bundle *publish.Bundle
+	}{{"gzip", held}, {"whole", whole}} {
+		b.Run("held="+tc.form, func(b *testing.B) {
+			s, _ := newTestServer(b, Options{Build: func(context.Context, GzipFunc) (*publish.Bundle, error) { return tc.bundle, nil }})
+			h := s.Handler()
+			if a := s.snap.Load().files[name]; (a.data == nil) != (tc.form == "gzip") || a.size != len(data) {
+				b.Fatalf("%s held with %d bytes of %d, not in the form %s", name, len(a.data), len(data), tc.form)
+			}
+			req := httptest.NewRequest("GET", "/"+name, nil)
+			b.SetBytes(int64(len(data)))
+			b.ReportAllocs()
+			for b.Loop() {
+				w := discardWriter{h: http.Header{}}
+				h.ServeHTTP(&w, req)
+				if w.code != 200 || w.n != len(data) {
+					b.Fatalf("status %d, %d bytes of %d", w.code, w.n, len(data))
+				}
+			}
+		})
+	}
+}
 
 // BenchmarkConditionalGET: the handler's cost for a revalidation answered
 // 304 (no network).
@@ -85,6 +149,7 @@ func BenchmarkConditionalGETLoopback(b *testing.B) {
 type discardWriter struct {
 	h    http.Header
 	code int
+	n    int // the bytes written
 }
 
 func (w *discardWriter) Header() http.Header { return w.h }
@@ -97,5 +162,6 @@ func (w *discardWriter) Write(p []byte) (int, error) {
 	if w.code == 0 {
 		w.code = 200
 	}
+	w.n += len(p)
 	return len(p), nil
 }

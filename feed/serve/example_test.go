@@ -17,8 +17,10 @@ import (
 // gracefully; SIGHUP loads the configuration again and calls Reload, which
 // keeps the old feeds if the new build fails.
 func Example() {
-	render := func(ctx context.Context) (*publish.Bundle, error) {
-		return &publish.Bundle{}, nil // the real one renders the configuration's feeds
+	render := func(ctx context.Context, gzip serve.GzipFunc) (*publish.Bundle, error) {
+		// the real one renders the configuration's feeds with publish.Render,
+		// its RenderOptions.Gzip set to gzip
+		return &publish.Bundle{}, nil
 	}
 	srv, err := serve.New(serve.Options{
 		Logger:   slog.New(slog.NewJSONHandler(os.Stderr, nil)),

@@ -230,9 +230,13 @@ func writeAsset(w http.ResponseWriter, r *http.Request, a *asset, cacheControl [
 		body = bytes.NewReader(a.gz)
 		h["Etag"] = a.gzETag
 		h["Content-Encoding"] = hdrGzip
-	case a.data == nil && a.gz != nil:
-		body = &gunzipReader{gz: a.gz} // an ad-hoc feed keeps only its gzip form
+	case a.data == nil && a.gz != nil: // a feed held in its gzip form alone
 		h["Etag"] = a.etag
+		if unconditional(r) {
+			writeInflated(w, r, a)
+			return
+		}
+		body = &gunzipReader{gz: a.gz, size: int64(a.size)}
 	default:
 		body = bytes.NewReader(a.data)
 		h["Etag"] = a.etag
@@ -242,6 +246,22 @@ func writeAsset(w http.ResponseWriter, r *http.Request, a *asset, cacheControl [
 		return
 	}
 	http.ServeContent(w, r, "", a.modTime, body)
+}
+
+// writeInflated is writeWhole for a feed held in its gzip form alone,
+// asked for by a client that does not take gzip: its bytes are inflated
+// into the response as they are written, never held whole.
+func writeInflated(w http.ResponseWriter, r *http.Request, a *asset) {
+	h := w.Header()
+	if a.lastModified != nil {
+		h["Last-Modified"] = a.lastModified
+	}
+	h["Accept-Ranges"] = hdrBytes
+	h["Content-Length"] = []string{strconv.Itoa(a.size)}
+	w.WriteHeader(http.StatusOK)
+	if r.Method != http.MethodHead {
+		gunzipTo(w, a.gz) // an error is the client's going away: nothing to tell it
+	}
 }
 
 // unconditional reports whether r asks for the whole representation

@@ -66,7 +66,9 @@ func TestHealthDegraded(t *testing.T) {
 	}
 	check("after a refresh", "degraded", "reload refused")
 
-	err = s.Reload(t.Context(), func(context.Context) (*publish.Bundle, error) { return nil, errors.New("ical: encoder failed") })
+	err = s.Reload(t.Context(), func(context.Context, GzipFunc) (*publish.Bundle, error) {
+		return nil, errors.New("ical: encoder failed")
+	})
 	if err == nil {
 		t.Fatal("a failing reload succeeded")
 	}
@@ -123,7 +125,7 @@ func TestHealthNamesEveryOversizeFeed(t *testing.T) {
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			s := builtAt(t, time.Date(2026, 12, 2, 3, 15, 0, 0, time.UTC))
-			if s.Reload(t.Context(), func(context.Context) (*publish.Bundle, error) { return nil, tc.err }) == nil {
+			if s.Reload(t.Context(), func(context.Context, GzipFunc) (*publish.Bundle, error) { return nil, tc.err }) == nil {
 				t.Fatal("a failing reload succeeded")
 			}
 			hb := healthOf(t, s)

@@ -9,6 +9,8 @@ import (
 	"log/slog"
 	"net/http"
 	"net/http/httptest"
+	"path"
+	"slices"
 	"strings"
 	"sync"
 	"testing"
@@ -69,25 +71,60 @@ func testBundle(rev string) *publish.Bundle {
 	}
 }
 
-// builder returns a BuildFunc serving whatever bundle (or error) is set.
+// heldBy is b as publish.Render makes it with RenderOptions.Gzip set to
+// gzip, as the command's build does: each feed in the form gzip gives it,
+// its gzip form alone (Data nil) or, when gzip gives none, its bytes.
+func heldBy(b *publish.Bundle, gzip GzipFunc) *publish.Bundle {
+	if b == nil || gzip == nil {
+		return b
+	}
+	out := *b
+	out.Files = slices.Clone(b.Files)
+	for i := range out.Files {
+		f := &out.Files[i]
+		if path.Ext(f.Name) != ".ics" {
+			continue // Render keeps feeds.json and index.html whole
+		}
+		f.Size = len(f.Data)
+		if f.Gzip = gzip(f); f.Gzip != nil {
+			f.Data = nil
+		}
+	}
+	return &out
+}
+
+// builder returns a BuildFunc serving whatever bundle (or error) is set,
+// its feeds held as the command's build holds them (heldBy).
 type builder struct {
 	mu    sync.Mutex
 	b     *publish.Bundle
 	err   error
+	whole bool // serve b as it is, its feeds' bytes kept
 	calls int
 }
 
 func (b *builder) set(bundle *publish.Bundle, err error) {
 	b.mu.Lock()
 	defer b.mu.Unlock()
-	b.b, b.err = bundle, err
+	b.b, b.err, b.whole = bundle, err, false
 }
 
-func (b *builder) build(ctx context.Context) (*publish.Bundle, error) {
+// setWhole serves bundle as it is, as a build that renders without the
+// server's GzipFunc hands it over.
+func (b *builder) setWhole(bundle *publish.Bundle) {
+	b.mu.Lock()
+	defer b.mu.Unlock()
+	b.b, b.err, b.whole = bundle, nil, true
+}
+
+func (b *builder) build(ctx context.Context, gzip GzipFunc) (*publish.Bundle, error) {
 	b.mu.Lock()
 	defer b.mu.Unlock()
 	b.calls++
-	return b.b, b.err
+	if b.whole {
+		return b.b, b.err
+	}
+	return heldBy(b.b, gzip), b.err
 }
 
 // adhocICS is the ad-hoc builder of the tests: a calendar whose name is the

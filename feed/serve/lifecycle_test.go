@@ -53,7 +53,7 @@ func TestGracefulShutdown(t *testing.T) {
 	release := make(chan struct{})
 	reg := NewRegistry()
 	s, err := New(Options{
-		Build:   func(context.Context) (*publish.Bundle, error) { return testBundle("a"), nil },
+		Build:   func(context.Context, GzipFunc) (*publish.Bundle, error) { return testBundle("a"), nil },
 		Logger:  quiet(),
 		Metrics: reg,
 		Adhoc: writes(func(ctx context.Context, q AdhocQuery) ([]byte, error) {
@@ -120,7 +120,7 @@ func TestRunServesBeforeFirstBuild(t *testing.T) {
 	gate := make(chan struct{})
 	reg := NewRegistry()
 	s, err := New(Options{
-		Build: func(ctx context.Context) (*publish.Bundle, error) {
+		Build: func(ctx context.Context, _ GzipFunc) (*publish.Bundle, error) {
 			select {
 			case <-gate:
 				return testBundle("a"), nil
@@ -166,7 +166,7 @@ func TestInitialBuildRetries(t *testing.T) {
 		var n atomic.Int32
 		reg := NewRegistry()
 		s, err := New(Options{
-			Build: func(context.Context) (*publish.Bundle, error) {
+			Build: func(context.Context, GzipFunc) (*publish.Bundle, error) {
 				attempts = append(attempts, time.Since(start))
 				if n.Add(1) < 5 {
 					return nil, errors.New("config: sites[0]: unreadable")
@@ -208,7 +208,7 @@ func TestRunStopsOnRefusedFeed(t *testing.T) {
 	var n atomic.Int32
 	refusal := &publish.OversizeError{Feed: "plot-sun", Bytes: 1_200_000, Limit: 1_000_000}
 	s, err := New(Options{
-		Build: func(context.Context) (*publish.Bundle, error) {
+		Build: func(context.Context, GzipFunc) (*publish.Bundle, error) {
 			n.Add(1)
 			return nil, fmt.Errorf("publish: feed plot-sun: %w", refusal)
 		},
@@ -274,7 +274,7 @@ func TestShutdownStopsBuildQuietly(t *testing.T) {
 	entered := make(chan struct{}, 2)
 	reg := NewRegistry()
 	s, err := New(Options{
-		Build: func(ctx context.Context) (*publish.Bundle, error) {
+		Build: func(ctx context.Context, _ GzipFunc) (*publish.Bundle, error) {
 			entered <- struct{}{}
 			<-ctx.Done()
 			return nil, fmt.Errorf("publish: %w", ctx.Err())
@@ -291,7 +291,7 @@ func TestShutdownStopsBuildQuietly(t *testing.T) {
 	<-entered
 	reload := make(chan error, 1)
 	go func() {
-		reload <- s.Reload(ctx, func(ctx context.Context) (*publish.Bundle, error) {
+		reload <- s.Reload(ctx, func(ctx context.Context, _ GzipFunc) (*publish.Bundle, error) {
 			return nil, fmt.Errorf("publish: %w", ctx.Err())
 		})
 	}()

@@ -47,8 +47,17 @@ import (
 )
 
 // BuildFunc renders every configured feed. It must not modify a Bundle it
-// has returned before.
-type BuildFunc func(ctx context.Context) (*publish.Bundle, error)
+// has returned before. It is given the server's GzipFunc, to render with as
+// publish.RenderOptions.Gzip.
+type BuildFunc func(ctx context.Context, gzip GzipFunc) (*publish.Bundle, error)
+
+// GzipFunc is publish.RenderOptions.Gzip as the server gives it to a
+// BuildFunc: each feed is compressed as soon as it is rendered (or its gzip
+// form taken from the feeds served, when their bytes are the same) and
+// held in that form alone, so that a build never holds every feed's bytes
+// at once. A Bundle rendered without it is served all the same: the server
+// compresses its files then.
+type GzipFunc func(f *publish.File) []byte
 
 // AdhocFunc renders one ad-hoc feed for a validated query: it writes the
 // .ics bytes to w, best in pieces as they are rendered (the server
@@ -470,11 +479,12 @@ func (s *Server) runBuild(ctx context.Context, build BuildFunc) (snap *snapshot,
 			snap, err = nil, fmt.Errorf("serve: build panicked: %v", r)
 		}
 	}()
-	b, err := build(ctx)
+	prev := s.snap.Load()
+	b, err := build(ctx, feedGzip(prev))
 	if err != nil {
 		return nil, err
 	}
-	return prepare(b, s.snap.Load(), time.Now())
+	return prepare(b, prev, time.Now())
 }
 
 // Run builds the feeds, serves HTTP on ln and refreshes on schedule until ctx

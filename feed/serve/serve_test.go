@@ -8,6 +8,7 @@ import (
 	"encoding/hex"
 	"encoding/json"
 	"errors"
+	"fmt"
 	"io"
 	"log/slog"
 	"maps"
@@ -87,7 +88,7 @@ func TestContentDisposition(t *testing.T) {
 func TestFeedsJSONSynthesised(t *testing.T) {
 	b := testBundle("a")
 	b.Files = b.Files[1:] // no feeds.json in this bundle
-	s, _ := newTestServer(t, Options{Build: func(context.Context) (*publish.Bundle, error) { return b, nil }})
+	s, _ := newTestServer(t, Options{Build: func(context.Context, GzipFunc) (*publish.Bundle, error) { return b, nil }})
 	r := get(t, s.Handler(), "GET", "/feeds.json")
 	var got []publish.FeedInfo
 	if err := json.Unmarshal([]byte(body(t, r)), &got); err != nil || r.StatusCode != 200 {
@@ -300,10 +301,13 @@ func TestFailedRefreshKeepsFeeds(t *testing.T) {
 	before := snapshot()
 	bad := testBundle("b")
 	bad.Files[3].Checksum = strings.Repeat("0", 64) // a corrupt bundle is a failed build too
+	unsummed := heldBy(testBundle("b"), feedGzip(nil))
+	unsummed.Files[3].Checksum = "" // a feed held in its gzip form needs its sum: the bytes are not at hand
 	for _, fail := range []func(){
 		func() { b.set(nil, errors.New("config: feeds[1].site: unknown site \"nowhere\"")) },
 		func() { b.set(nil, nil) },
-		func() { b.set(bad, nil) },
+		func() { b.setWhole(bad) },
+		func() { b.setWhole(unsummed) },
 		func() {
 			dup := testBundle("b")
 			dup.Files = append(dup.Files, dup.Files[0])
@@ -325,7 +329,7 @@ func TestFailedRefreshKeepsFeeds(t *testing.T) {
 
 func TestBuildPanicIsAFailedRefresh(t *testing.T) {
 	calls := 0
-	s, _ := newTestServer(t, Options{Build: func(ctx context.Context) (*publish.Bundle, error) {
+	s, _ := newTestServer(t, Options{Build: func(ctx context.Context, _ GzipFunc) (*publish.Bundle, error) {
 		calls++
 		if calls > 1 {
 			panic("catalogue bug")
@@ -344,7 +348,7 @@ func TestReload(t *testing.T) {
 	s, old := newTestServer(t, Options{})
 	h := s.Handler()
 	// An invalid new configuration: refused, the old feeds and the old build stay.
-	err := s.Reload(t.Context(), func(context.Context) (*publish.Bundle, error) {
+	err := s.Reload(t.Context(), func(context.Context, GzipFunc) (*publish.Bundle, error) {
 		return nil, errors.New(`config: feeds[0].kinds[2]: unknown kind "sunrse"`)
 	})
 	if err == nil {
@@ -510,7 +514,7 @@ func (l *lockedBuf) Write(p []byte) (int, error) {
 
 func TestNewOptions(t *testing.T) {
 	reg := NewRegistry()
-	build := func(context.Context) (*publish.Bundle, error) { return nil, nil }
+	build := func(context.Context, GzipFunc) (*publish.Bundle, error) { return nil, nil }
 	for _, tc := range []struct {
 		name string
 		opts Options
@@ -602,10 +606,13 @@ func TestCacheControlOfPages(t *testing.T) {
 func TestWholeResponse(t *testing.T) {
 	s, _ := newTestServer(t, Options{})
 	a := s.snap.Load().files["meadowbrook-sun.ics"]
+	if a.data != nil {
+		t.Fatal("the feed is held whole: the test is of one held in its gzip form")
+	}
 	for _, method := range []string{"GET", "HEAD"} {
 		for _, gz := range []bool{false, true} {
 			var enc []string
-			want := a.data
+			want := gunzip(a.gz)
 			if gz {
 				enc = []string{"Accept-Encoding", "gzip"}
 				want = a.gz
@@ -646,6 +653,20 @@ func TestWholeResponse(t *testing.T) {
 // new bytes after a change (RFC 9110 §13.1.3: 304 only when not modified
 // since), and 304 while they stay the same.
 func TestLastModifiedFollowsBytes(t *testing.T) {
+	for _, tc := range []struct {
+		name string
+		form func(*publish.Bundle, GzipFunc) *publish.Bundle
+	}{
+		{"held in gzip form", heldBy},
+		{"whole", func(b *publish.Bundle, _ GzipFunc) *publish.Bundle { return b }},
+	} {
+		t.Run(tc.name, func(t *testing.T) { lastModifiedFollowsBytes(t, tc.form) })
+	}
+}
+
+// lastModifiedFollowsBytes is TestLastModifiedFollowsBytes for reloads
+// whose builds give their feeds in the form form makes of them.
+func lastModifiedFollowsBytes(t *testing.T, form func(*publish.Bundle, GzipFunc) *publish.Bundle) {
 	s, _ := newTestServer(t, Options{})
 	h := s.Handler()
 	const feedPath = "/feeds/meadowbrook-sun.ics"
@@ -654,7 +675,9 @@ func TestLastModifiedFollowsBytes(t *testing.T) {
 	listing := get(t, h, "GET", "/feeds.json").Header.Get("Last-Modified")
 
 	// a rebuild giving the same bytes
-	if err := s.Reload(t.Context(), func(context.Context) (*publish.Bundle, error) { return testBundle("a"), nil }); err != nil {
+	if err := s.Reload(t.Context(), func(_ context.Context, gzip GzipFunc) (*publish.Bundle, error) {
+		return form(testBundle("a"), gzip), nil
+	}); err != nil {
 		t.Fatal(err)
 	}
 	if r := get(t, h, "GET", feedPath); r.Header.Get("Last-Modified") != lm || r.Header.Get("ETag") != etag {
@@ -669,7 +692,7 @@ func TestLastModifiedFollowsBytes(t *testing.T) {
 	if changed.File("meadowbrook-sun.ics").ModTime != testBundle("a").File("meadowbrook-sun.ics").ModTime {
 		t.Fatal("the two bundles' feeds should carry the same ModTime")
 	}
-	if err := s.Reload(t.Context(), func(context.Context) (*publish.Bundle, error) { return changed, nil }); err != nil {
+	if err := s.Reload(t.Context(), func(_ context.Context, gzip GzipFunc) (*publish.Bundle, error) { return form(changed, gzip), nil }); err != nil {
 		t.Fatal(err)
 	}
 	r := get(t, h, "GET", feedPath)
@@ -689,5 +712,122 @@ func TestLastModifiedFollowsBytes(t *testing.T) {
 	// feeds.json, the same bytes in both bundles, keeps its date
 	if got := get(t, h, "GET", "/feeds.json").Header.Get("Last-Modified"); got != listing {
 		t.Errorf("feeds.json unchanged: Last-Modified %q, want %q as before", got, listing)
+	}
+}
+
+// A configured feed is held in its gzip form alone, as the command's build
+// gives it (publish.RenderOptions.Gzip): no copy of its bytes, so that a
+// server of many feeds holds each once, compressed. A feed too small to be
+// worth compressing, feeds.json and the index keep their bytes.
+func TestFeedHeldInGzipForm(t *testing.T) {
+	s, _ := newTestServer(t, Options{})
+	want := testBundle("a")
+	files := s.snap.Load().files
+	a := files["meadowbrook-sun.ics"]
+	if a.data != nil || a.gz == nil {
+		t.Errorf("meadowbrook-sun.ics held with %d bytes and a gzip form of %d, want its gzip form alone", len(a.data), len(a.gz))
+	} else if got := gunzip(a.gz); !bytes.Equal(got, want.File("meadowbrook-sun.ics").Data) || a.size != len(got) {
+		t.Errorf("meadowbrook-sun.ics: its gzip form holds %d bytes (size %d), not the feed's %d", len(got), a.size, len(want.File("meadowbrook-sun.ics").Data))
+	}
+	for _, name := range []string{"kestrel-ridge-moon.ics", "feeds.json", "index.html"} {
+		if a := files[name]; a.data == nil || a.size != len(a.data) || !bytes.Equal(a.data, want.File(name).Data) {
+			t.Errorf("%s held without its bytes (size %d)", name, a.size)
+		}
+	}
+}
+
+// A feed held in its gzip form answers every request as the same feed held
+// whole does (as serve held every configured feed before): the same
+// status, validators, Content-Length, Content-Range and body, for a client
+// that takes gzip and one that does not, for GET and HEAD, conditional
+// requests and ranges (http.ServeContent's answers), the identity form
+// inflated for the request.
+func TestHeldFeedAnswersAsWhole(t *testing.T) {
+	held, _ := newTestServer(t, Options{})
+	b := &builder{}
+	b.setWhole(testBundle("a"))
+	whole, _ := newTestServer(t, Options{Build: b.build})
+	if held.snap.Load().files["meadowbrook-sun.ics"].data != nil || whole.snap.Load().files["meadowbrook-sun.ics"].data == nil {
+		t.Fatal("the two servers should hold the feed in its gzip form alone and whole")
+	}
+	const feedPath = "/meadowbrook-sun.ics"
+	n := len(testBundle("a").File("meadowbrook-sun.ics").Data)
+	for _, enc := range []string{"", "gzip"} {
+		etag := get(t, whole.Handler(), "GET", feedPath, "Accept-Encoding", enc).Header.Get("ETag")
+		for _, tc := range [][]string{
+			{},
+			{"Range", "bytes=0-99"},
+			{"Range", "bytes=100-"},
+			{"Range", "bytes=-50"},
+			{"Range", "bytes=" + strconv.Itoa(n-10) + "-" + strconv.Itoa(n+10)},
+			{"Range", "bytes=" + strconv.Itoa(10*n) + "-"}, // not satisfiable: 416
+			{"Range", "bytes=0-9,20-29"},                   // multipart/byteranges
+			{"If-None-Match", etag},
+			{"If-None-Match", `"0000"`},
+			{"If-None-Match", `"0000"`, "Range", "bytes=5-15"},
+			{"If-Range", etag, "Range", "bytes=5-15"},
+			{"If-Range", `"0000"`, "Range", "bytes=5-15"},
+			{"If-Match", etag, "Range", "bytes=5-15"},
+			{"If-Match", `"0000"`},
+		} {
+			for _, method := range []string{"GET", "HEAD"} {
+				headers := append([]string{"Accept-Encoding", enc}, tc...)
+				got, want := get(t, held.Handler(), method, feedPath, headers...), get(t, whole.Handler(), method, feedPath, headers...)
+				gotBody, wantBody := body(t, got), body(t, want)
+				what := fmt.Sprintf("%s %q", method, headers)
+				if got.StatusCode != want.StatusCode {
+					t.Errorf("%s: status %d, want %d", what, got.StatusCode, want.StatusCode)
+					continue
+				}
+				for _, k := range []string{"Etag", "Content-Length", "Content-Range", "Content-Encoding", "Content-Type", "Vary", "Accept-Ranges"} {
+					g, w := got.Header.Get(k), want.Header.Get(k)
+					if k == "Content-Type" && strings.HasPrefix(w, "multipart/byteranges") {
+						g, w = g[:strings.Index(g, "boundary=")], w[:strings.Index(w, "boundary=")]
+					}
+					if g != w {
+						t.Errorf("%s: %s %q, want %q", what, k, g, w)
+					}
+				}
+				if mime := want.Header.Get("Content-Type"); strings.HasPrefix(mime, "multipart/byteranges") {
+					// each part's boundary is drawn at random: compare without them
+					gotBody = strings.ReplaceAll(gotBody, got.Header.Get("Content-Type")[strings.Index(got.Header.Get("Content-Type"), "boundary=")+len("boundary="):], "")
+					wantBody = strings.ReplaceAll(wantBody, mime[strings.Index(mime, "boundary=")+len("boundary="):], "")
+				}
+				if gotBody != wantBody {
+					t.Errorf("%s: body of %d bytes differs from the %d held whole", what, len(gotBody), len(wantBody))
+				}
+			}
+		}
+	}
+}
+
+// http.ServeContent learns a body's size by seeking to its end and back
+// to its start: a feed held in its gzip form answers from the size it
+// keeps, so a HEAD costs no decompression; a read, or a seek anywhere
+// else, inflates it, and reads from where it was sought.
+func TestGunzipReaderSize(t *testing.T) {
+	data := icsFor("meadowbrook-sun", 40, "a")
+	gz := gzipBytes(data)
+	g := &gunzipReader{gz: gz, size: int64(len(data))}
+	if n, err := g.Seek(0, io.SeekEnd); n != int64(len(data)) || err != nil {
+		t.Errorf("Seek to the end: %d, %v; want %d", n, err, len(data))
+	}
+	if n, err := io.ReadAll(g); len(n) != 0 || err != nil {
+		t.Errorf("read at the end: %d bytes, %v; want none", len(n), err)
+	}
+	g = &gunzipReader{gz: gz, size: int64(len(data))}
+	g.Seek(0, io.SeekEnd)
+	if n, err := g.Seek(0, io.SeekStart); n != 0 || err != nil || g.r != nil {
+		t.Errorf("Seek back to the start: %d, %v, inflated %v; want 0 without inflating", n, err, g.r != nil)
+	}
+	if got, err := io.ReadAll(g); err != nil || !bytes.Equal(got, data) {
+		t.Errorf("read from the start: %d bytes, %v; want the %d of the feed", len(got), err, len(data))
+	}
+	g = &gunzipReader{gz: gz, size: int64(len(data))}
+	if n, err := g.Seek(100, io.SeekStart); n != 100 || err != nil {
+		t.Errorf("Seek to 100: %d, %v", n, err)
+	}
+	if got, err := io.ReadAll(g); err != nil || !bytes.Equal(got, data[100:]) {
+		t.Errorf("read from 100: %d bytes, %v; want the feed's last %d", len(got), err, len(data)-100)
 	}
 }

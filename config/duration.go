@@ -2,8 +2,10 @@ package config
 
 import (
 	"fmt"
+	"regexp"
 	"strconv"
 	"strings"
+	"sync"
 	"time"
 )
 
@@ -38,8 +40,35 @@ func durationHint(s string) string {
 		}
 		return fmt.Sprintf(`the units are h, m and s: write "%sh" for %s`, strconv.FormatFloat(hours, 'f', -1, 64), s)
 	}
+	if m := clockDuration().FindStringSubmatch(s); m != nil { // 1:30, as a clock is read
+		var b strings.Builder
+		b.WriteString(m[1])
+		for i, unit := range []string{"h", "m", "s"} {
+			if n, _ := strconv.Atoi(m[i+2]); n > 0 {
+				b.WriteString(strconv.Itoa(n) + unit)
+			}
+		}
+		if w := b.String(); strings.TrimLeft(w, "+-") != "" {
+			return fmt.Sprintf(`the units are h, m and s: write "%s" for %s`, w, s)
+		}
+	}
+	if m := wordDuration().FindStringSubmatch(s); m != nil { // 30 min, 2 hours
+		return fmt.Sprintf(`the units are h, m and s: write "%s%s" for %s`, m[1], strings.ToLower(m[2][:1]), s)
+	}
 	return `write a number with a unit, e.g. "30m", "-1h15m", "2h"`
 }
+
+// clockDuration is a duration written as a clock reads: hours, minutes and
+// maybe seconds ("1:30", "-0:45", "0:01:30").
+var clockDuration = sync.OnceValue(func() *regexp.Regexp {
+	return regexp.MustCompile(`^([+-]?)([0-9]{1,3}):([0-5][0-9])(?::([0-5][0-9]))?$`)
+})
+
+// wordDuration is a number with its unit in a word ("30 min", "-2 hours",
+// "90 seconds").
+var wordDuration = sync.OnceValue(func() *regexp.Regexp {
+	return regexp.MustCompile(`^([+-]?[0-9]+(?:\.[0-9]+)?) ?((?i:hours?|hrs?|minutes?|mins?|seconds?|secs?))$`)
+})
 
 // MarshalText writes the duration as UnmarshalText reads it.
 func (d Duration) MarshalText() ([]byte, error) { return []byte(d.String()), nil }

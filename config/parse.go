@@ -110,7 +110,7 @@ func parseFrom(r io.Reader, format string, env LookupEnv, dir string) (*Config, 
 		return nil, fmt.Errorf("%w: %w", ErrUnreadable, err)
 	}
 	if len(data) > maxFileBytes {
-		return nil, fmt.Errorf("%w: larger than %d bytes", ErrUnreadable, maxFileBytes)
+		return nil, fmt.Errorf("%w: larger than %d MiB (%d bytes), where a configuration takes a few kB: is it the configuration?", ErrUnreadable, maxFileBytes>>20, maxFileBytes)
 	}
 	return parse(data, f, env, dir)
 }
@@ -124,6 +124,12 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		// start of a UTF-8 file: the YAML decoder skips it, the TOML and
 		// JSON decoders take it for a character out of place ("ï").
 		data = bytes.TrimPrefix(data, []byte("\ufeff"))
+	}
+	if format == "json" && len(bytes.TrimSpace(data)) == 0 {
+		// an empty file configures nothing, as an empty YAML or TOML
+		// file does ("sites: no sites"), rather than "unexpected end
+		// of JSON input"
+		data = []byte("{}")
 	}
 	if format == "yaml" {
 		if data, err = yamlVersion(data); err != nil {

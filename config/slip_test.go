@@ -73,3 +73,23 @@ func TestYAMLEqualsHint(t *testing.T) {
 		t.Errorf("problems %+v, want %+v", got, wantP)
 	}
 }
+
+// An empty file configures nothing, in every format: the problem is the
+// missing sites, not the JSON decoder's "unexpected end of JSON input". A
+// file of megabytes is refused in words a user can act on.
+func TestEmptyAndHugeFiles(t *testing.T) {
+	for _, format := range []string{"yaml", "toml", "json"} {
+		for _, in := range []string{"", "\n  \n"} {
+			_, err := Parse(strings.NewReader(in), format)
+			ps := problemsOf(t, err)
+			if len(ps) == 0 || ps[0].Path != "sites" || ps[0].Msg != "no sites: at least one site is needed" {
+				t.Errorf("%s %q: %v, want the missing sites first", format, in, err)
+			}
+		}
+	}
+	_, err := Parse(strings.NewReader(strings.Repeat("#", maxFileBytes+1)), "yaml")
+	want := "cannot read the file: larger than 8 MiB (8388608 bytes), where a configuration takes a few kB: is it the configuration?"
+	if !errors.Is(err, ErrUnreadable) || err.Error() != want {
+		t.Errorf("%v\nwant\n%s", err, want)
+	}
+}

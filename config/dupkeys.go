@@ -161,7 +161,6 @@ func (d *dupFinder) yaml(data []byte) {
 		case yaml.MappingNode:
 			for i := 0; i+1 < len(n.Content); i += 2 {
 				k := n.Content[i]
-				keepClockDecimal(k.Value, n.Content[i+1])
 				walk(n.Content[i+1], d.key(path, k.Value, k.Line, k.Column))
 			}
 		case yaml.SequenceNode:
@@ -170,6 +169,7 @@ func (d *dupFinder) yaml(data []byte) {
 			}
 		case yaml.ScalarNode:
 			keepDateAsWritten(n)
+			keepDecimal(n)
 		}
 	}
 	walk(&doc, "")
@@ -193,20 +193,24 @@ func keepDateAsWritten(n *yaml.Node) {
 	}
 }
 
-// keepClockDecimal makes the number of a plain YAML scalar written with a
-// leading zero where a clock time belongs (latest_off: 0530) the decimal
-// number written, 530, as YAML 1.2 reads it: the decoder would read it as
-// octal, 344, and the error's hint would be "03:44", not "05:30". A number
-// is refused there either way; no accepted file reads otherwise (the
-// document then decodes otherwise than the text, as for keepDateAsWritten).
-func keepClockDecimal(key string, n *yaml.Node) {
-	switch key {
-	case "latest_off", "earliest_on", "start", "end":
-	default:
+// keepDecimal makes the number of a plain YAML scalar written with a
+// leading zero (elevation: 0420, latest_off: 0530) the decimal number
+// written, 420, as YAML 1.2 reads it (yaml.org/spec/1.2.2, 10.3.2 "Tag
+// Resolution": octal is written 0o…): the decoder reads it as YAML 1.1's
+// octal, 272, and the file would be read as it is not written (a clock
+// time's hint would be "03:44" for 0530, not "05:30"). TOML and JSON
+// refuse such numbers; the document then decodes otherwise than the text,
+// as for keepDateAsWritten.
+func keepDecimal(n *yaml.Node) {
+	v := n.Value
+	if n.Kind != yaml.ScalarNode || n.Tag != "!!int" || n.Style != 0 {
 		return
 	}
-	v := n.Value
-	if n.Kind != yaml.ScalarNode || n.Tag != "!!int" || n.Style != 0 || len(v) < 2 || v[0] != '0' {
+	sign := ""
+	if v != "" && (v[0] == '-' || v[0] == '+') {
+		sign, v = v[:1], v[1:]
+	}
+	if len(v) < 2 || v[0] != '0' {
 		return
 	}
 	for _, c := range v {
@@ -217,7 +221,7 @@ func keepClockDecimal(key string, n *yaml.Node) {
 	if v = strings.TrimLeft(v, "0"); v == "" {
 		v = "0"
 	}
-	n.Value = v
+	n.Value = sign + v
 }
 
 func (d *dupFinder) toml(data []byte) {

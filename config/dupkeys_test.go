@@ -232,3 +232,32 @@ func TestClockWrittenWithLeadingZero(t *testing.T) {
 		}
 	}
 }
+
+// Any number written in YAML with a leading zero is the decimal number
+// written, as YAML 1.2 reads it (yaml.org/spec/1.2.2, 10.3.2 "Tag
+// Resolution": octal is written 0o…), not YAML 1.1's octal, which the
+// decoder follows there: elevation 0420 is 420 m, not 272; days_ahead 0365
+// is 365 days, not 245. An octal number written 0o is octal.
+func TestNumberWrittenWithLeadingZero(t *testing.T) {
+	const head = "sites:\n  - {id: a, latitude: 47.5, longitude: 9.7, timezone: Europe/Zurich, elevation: %s}\nfeeds:\n  - {id: f, site: a, kinds: [sunrise], days_ahead: %s}\n"
+	for _, tc := range []struct {
+		elevation, days string
+		m               float64
+		d               int
+	}{
+		{"0420", "0365", 420, 365},
+		{"-0042", "0100", -42, 100},
+		{"0o644", "0o12", 420, 10}, // 6·64 + 4·8 + 4 = 420; 1·8 + 2 = 10
+		{"0", "00", 0, 0},
+	} {
+		c, err := Parse(strings.NewReader(fmt.Sprintf(head, tc.elevation, tc.days)), "yaml")
+		if err != nil {
+			t.Errorf("elevation %s, days_ahead %s: %v", tc.elevation, tc.days, err)
+			continue
+		}
+		if c.Sites[0].Elevation != tc.m || c.Feeds[0].DaysAhead != tc.d {
+			t.Errorf("elevation %s, days_ahead %s read as %v m and %d days, want %v and %d",
+				tc.elevation, tc.days, c.Sites[0].Elevation, c.Feeds[0].DaysAhead, tc.m, tc.d)
+		}
+	}
+}

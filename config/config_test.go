@@ -270,6 +270,10 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-title-control.yaml", "feeds[0].title", "North\rSun", "control character", "", 0},
 		{"bad-sites-shape.yaml", "sites", "3", "must be a list, not a number", "", 0},
 		{"bad-site-entry.yaml", "sites[1]", "south-field", "must be a mapping of keys, not text", "", 0},
+		// a list written as one mapping is said so, how the format writes a
+		// list, and alone: its feeds' site is not said missing as well
+		{"bad-sites-table.toml", "sites", "", "must be a list, not a mapping", "in TOML each entry of the list begins with [[sites]], in two brackets", 0},
+		{"bad-sites-mapping.yaml", "sites", "", "must be a list, not a mapping", `each entry of the list begins with "- "`, 0},
 		{"bad-kinds-shape.yaml", "feeds[0].kinds", "sunrise", "must be a list, not text", `write it ["sunrise"]`, 0},
 		// one value where a list belongs: the value as written (a date, not
 		// a date and time) and the list of one to write

@@ -175,6 +175,9 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		for i := range problems {
 			if problems[i].Value == "" { // a mapping or a list given as one value: name it
 				problems[i].Value = rawAt(settings, problems[i].Path)
+				if problems[i].Msg == "must be a list, not a mapping" && problems[i].Hint == "" {
+					problems[i].Hint = listHint(format, problems[i].Path)
+				}
 				if key, value, ok := yamlEquals(problems[i].Value); ok && format == "yaml" && problems[i].Hint == "" &&
 					strings.HasSuffix(problems[i].Msg, "not text") && !strings.Contains(value, "=") {
 					// "service:" and "listen = ':8080'" on the line below it: one text
@@ -205,6 +208,7 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		problems = append(problems, inferZones(c)...)
 	}
 
+	unreadSites := slices.ContainsFunc(problems, func(p FieldError) bool { return p.Path == "sites" })
 	var verr *ValidationError
 	if err := c.Validate(); errors.As(err, &verr) {
 		for _, p := range verr.Problems {
@@ -213,6 +217,9 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 			}
 			if covered(p.Path, problems) {
 				continue
+			}
+			if p.Msg == msgNoSuchSite && unreadSites {
+				continue // the sites could not be read: their ids are unknown, not missing
 			}
 			if p.Msg == msgNeedsStart && covered(p.Path[:strings.LastIndexByte(p.Path, '.')]+".start", problems) {
 				continue // the start is written, as a value that could not be read
@@ -1395,6 +1402,23 @@ func problemFor(path string, err error) []FieldError {
 	}
 	return []FieldError{{Path: shown, Msg: oneLine(msg)}}
 }
+
+// listHint says how the format writes a list of mappings, for one given
+// as a mapping at path ("sites", "feeds[0].kinds"): TOML's [[sites]] with
+// two brackets, where [sites] is one table.
+func listHint(format, path string) string {
+	switch format {
+	case "toml":
+		name := listIndex().ReplaceAllString(path, "")
+		return fmt.Sprintf("in TOML each entry of the list begins with [[%s]], in two brackets", name)
+	case "json":
+		return "a list is written in brackets: [{…}, {…}]"
+	}
+	return `each entry of the list begins with "- "`
+}
+
+// listIndex is the index of a list in a decoder path: "[0]".
+var listIndex = sync.OnceValue(func() *regexp.Regexp { return regexp.MustCompile(`\[[0-9]+\]`) })
 
 // keySections are the places a key is written, with the words that name
 // them in keyElsewhere.

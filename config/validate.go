@@ -39,6 +39,9 @@ const (
 // this package are, not when the program starts.
 var idPattern = sync.OnceValue(func() *regexp.Regexp { return regexp.MustCompile(`^[a-z0-9][a-z0-9-]*$`) })
 
+// msgNoSuchSite is the problem of a feed's site that no site has as id.
+const msgNoSuchSite = "no site has this id"
+
 // FieldError is one problem of a configuration.
 type FieldError struct {
 	Path  string // e.g. "sites[2].latitude"
@@ -208,7 +211,7 @@ func (c *Config) Validate() error {
 		case f.Site == "":
 			ps.add(p+".site", "", "is required: the id of the site the feed is computed for", siteList(ids))
 		case !ok:
-			ps.add(p+".site", f.Site, "no site has this id", nearValue(f.Site, ids, siteList(ids)))
+			ps.add(p+".site", f.Site, msgNoSuchSite, nearValue(f.Site, ids, siteList(ids)))
 		default:
 			for j, ks := range f.Kinds {
 				if (ks.Kind.Name == "sun-hidden" || ks.Kind.Name == "noon-clear") && !c.Sites[siteIDs[f.Site]].skylineGiven() {

@@ -736,7 +736,7 @@ func TestLoadErrors(t *testing.T) {
 		t.Errorf("syntax error: %v", err)
 	}
 	for name, want := range map[string]string{
-		"syntax-error.yaml": "cannot read the file as yaml: yaml: line 3: did not find expected ',' or ']'",
+		"syntax-error.yaml": "cannot read the file as yaml: yaml: line 4: a list opened with [ is not closed with ] (its items are separated by commas)",
 		"syntax-error.toml": "cannot read the file as toml: line 3, column",
 		"syntax-error.json": "cannot read the file as json: line 3: invalid character '}'",
 		// text without quotes is said so, not "unable to parse float"

@@ -770,7 +770,7 @@ func quoteAt(data []byte, row, col int) ([]byte, bool) {
 func yamlTabMessage(msg string, data []byte) string {
 	rest, ok := strings.CutPrefix(msg, "yaml: line ")
 	if !ok {
-		return msg
+		return yamlAnchorMessage(msg, data)
 	}
 	num, what, ok := strings.Cut(rest, ": ")
 	line, err := strconv.Atoi(num)
@@ -796,6 +796,22 @@ func yamlTabMessage(msg string, data []byte) string {
 		if line <= len(lines) && tabbed(lines[line-1]) {
 			return fmt.Sprintf("yaml: line %d: a tab in the indentation (YAML indents with spaces only)", line)
 		}
+		if line <= len(lines) {
+			// @ and ` are reserved in YAML, and % begins a directive
+			if v := yamlValue(lines[line-1]); v != "" && strings.ContainsAny(v[:1], "@`%") {
+				return fmt.Sprintf("yaml: line %d: a value cannot begin with %s in YAML (write it in quotes: %q)", line, v[:1], v)
+			}
+		}
+	case strings.HasPrefix(what, "did not find expected ',' or ']'"), strings.HasPrefix(what, "did not find expected ',' or '}'"):
+		// the decoder names the line where the block around the list began
+		if n, open := yamlUnclosedFlow(lines); n > 0 {
+			what := map[byte]string{'[': "a list opened with [ is not closed with ]", '{': "a mapping opened with { is not closed with }"}[open]
+			return fmt.Sprintf("yaml: line %d: %s (its items are separated by commas)", n, what)
+		}
+	case strings.HasPrefix(what, "found unexpected end of stream") && line <= len(lines):
+		if q := yamlValue(lines[line-1]); q != "" && (q[0] == '"' || q[0] == '\'') && strings.Count(q, q[:1]) == 1 {
+			return fmt.Sprintf("yaml: line %d: the text in quotes that begins here is not closed with %s", line, q[:1])
+		}
 	case strings.HasPrefix(what, "mapping values are not allowed") && line <= len(lines):
 		if hint := yamlColonHint(lines, line); hint != "" {
 			return msg + " (" + hint + ")"
@@ -804,6 +820,91 @@ func yamlTabMessage(msg string, data []byte) string {
 		// the decoder names the line where the block began, often line 1
 		if n, indent := yamlMisaligned(lines, line); n > 0 {
 			return fmt.Sprintf("yaml: line %d: indented by %d, unlike the lines above it (%s)", n, indent, what)
+		}
+		for n := line; n <= len(lines); n++ {
+			// 'O'Brien farm': the text ends at the second quote
+			if q := yamlValue(lines[n-1]); len(q) > 1 && q[0] == '\'' {
+				if end := strings.IndexByte(q[1:], '\''); end >= 0 && end+2 < len(q) && q[end+2] != '\'' && !strings.HasPrefix(q[end+2:], " #") {
+					return fmt.Sprintf("yaml: line %d: the text in quotes ends at its second ' (write a ' within it twice, %s, or the text in double quotes)",
+						n, "'"+strings.ReplaceAll(q[1:len(q)-1], "'", "''")+"'")
+				}
+			}
+		}
+	}
+	return msg
+}
+
+// yamlValue is the value written on line l of a YAML document, after its
+// key or list dash ("'O'Brien farm'" of `    name: 'O'Brien farm'`),
+// without the line end; "" for a line without one.
+func yamlValue(l []byte) string {
+	t := strings.TrimSpace(strings.TrimRight(string(l), "\r"))
+	for strings.HasPrefix(t, "- ") {
+		t = strings.TrimSpace(t[2:])
+	}
+	if i := strings.Index(t, ": "); i >= 0 && !strings.ContainsAny(t[:1], "\"'[{") {
+		t = strings.TrimSpace(t[i+2:])
+	}
+	return t
+}
+
+// yamlUnclosedFlow finds the line of the first list ([…]) or mapping
+// ({…}) written in brackets that the document does not close, and its
+// opening bracket; 0 when every one is closed. A bracket opens one where a
+// value begins (after "key: " or "- ") or inside another; quoted text and
+// comments are skipped.
+func yamlUnclosedFlow(lines [][]byte) (int, byte) {
+	type open struct {
+		line int
+		b    byte
+	}
+	var stack []open
+	for n, l := range lines {
+		t := strings.TrimRight(string(l), "\r")
+		if len(stack) == 0 {
+			v := yamlValue([]byte(t))
+			if v == "" || (v[0] != '[' && v[0] != '{') {
+				continue
+			}
+			t = v
+		}
+		var quote byte
+		for i := 0; i < len(t); i++ {
+			c := t[i]
+			switch {
+			case quote != 0:
+				if c == quote {
+					quote = 0
+				}
+			case c == '"' || c == '\'':
+				quote = c
+			case c == '#' && (i == 0 || t[i-1] == ' '):
+				i = len(t) // a comment
+			case c == '[' || c == '{':
+				stack = append(stack, open{n + 1, c})
+			case (c == ']' || c == '}') && len(stack) > 0:
+				stack = stack[:len(stack)-1]
+			}
+		}
+	}
+	if len(stack) == 0 {
+		return 0, 0
+	}
+	return stack[0].line, stack[0].b
+}
+
+// yamlAnchorMessage names the line of an alias whose anchor the document
+// lacks ("yaml: unknown anchor 'farm' referenced", without a line): a
+// value that begins with * is such an alias in YAML.
+func yamlAnchorMessage(msg string, data []byte) string {
+	name, ok := strings.CutPrefix(msg, "yaml: unknown anchor '")
+	if !ok {
+		return msg
+	}
+	name, _, _ = strings.Cut(name, "'")
+	for n, l := range bytes.Split(data, []byte("\n")) {
+		if v := yamlValue(l); v == "*"+name {
+			return fmt.Sprintf("yaml: line %d: *%s is a reference to an anchor &%s, which the file does not have (a text that begins with * is written in quotes: %q)", n+1, name, name, v)
 		}
 	}
 	return msg

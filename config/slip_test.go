@@ -93,3 +93,25 @@ func TestEmptyAndHugeFiles(t *testing.T) {
 		t.Errorf("%v\nwant\n%s", err, want)
 	}
 }
+
+// A YAML syntax error is named with the line at fault, in words that say
+// what to write, where the decoder names the line a block began on ("line
+// 1: did not find expected ',' or ']'" for a list left open on line 3, "did
+// not find expected key" for a quote within quotes), no line at all (an
+// unknown anchor), or a token it cannot start with.
+func TestYAMLSyntaxSlips(t *testing.T) {
+	for in, want := range map[string]string{
+		"sites:\n  - id: a\n    name: [North\n    latitude: 1\n":         "yaml: line 3: a list opened with [ is not closed with ] (its items are separated by commas)",
+		"a: 1\nb: {x: 1, y: 2\nc: [1, 2]\n":                              "yaml: line 2: a mapping opened with { is not closed with } (its items are separated by commas)",
+		"sites:\n  - id: a\n    name: 'O'Brien farm'\n    latitude: 1\n": "yaml: line 3: the text in quotes ends at its second ' (write a ' within it twice, 'O''Brien farm', or the text in double quotes)",
+		"sites:\n  - id: a\n    name: \"North Field\n    latitude: 1\n":  `yaml: line 3: the text in quotes that begins here is not closed with "`,
+		"service:\n  base_url: @example\n":                               `yaml: line 2: a value cannot begin with @ in YAML (write it in quotes: "@example")`,
+		"sites:\n  - id: %north\n":                                       `yaml: line 2: a value cannot begin with % in YAML (write it in quotes: "%north")`,
+		"sites:\n  - id: a\n    name: *farm\n":                           `yaml: line 3: *farm is a reference to an anchor &farm, which the file does not have (a text that begins with * is written in quotes: "*farm")`,
+	} {
+		_, err := Parse(strings.NewReader(in), "yaml")
+		if want = "cannot read the file as yaml: " + want; !errors.Is(err, ErrUnreadable) || err.Error() != want {
+			t.Errorf("%q:\n%v\nwant\n%s", in, err, want)
+		}
+	}
+}

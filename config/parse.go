@@ -479,6 +479,10 @@ func syntaxMessage(err error, data []byte) string {
 			msg = fmt.Sprintf("line %d: %s", row, bare) // not the parser's "incomplete number"
 			break
 		}
+		if slip := tomlSlip(msg, data, row); slip != "" {
+			msg = slip
+			break
+		}
 		msg = fmt.Sprintf("line %d, column %d: %s%s", row, col, tomlValueAt(data, row, col), msg)
 	case errors.As(err, &js):
 		off := min(int(js.Offset), len(data))
@@ -616,9 +620,9 @@ func tomlBareText(data []byte, row int) string {
 			return strconv.Quote(w), true
 		case !unicode.IsLetter(r), w == "true", w == "false", w == "inf", w == "nan", strings.ContainsAny(w, "\"'[]{}="):
 			return w, false
-		case strings.EqualFold(w, "yes"), strings.EqualFold(w, "on"):
+		case strings.EqualFold(w, "true"), strings.EqualFold(w, "yes"), strings.EqualFold(w, "on"):
 			return "true", true
-		case strings.EqualFold(w, "no"), strings.EqualFold(w, "off"):
+		case strings.EqualFold(w, "false"), strings.EqualFold(w, "no"), strings.EqualFold(w, "off"):
 			return "false", true
 		}
 		return strconv.Quote(w), true
@@ -653,6 +657,50 @@ func tomlBareText(data []byte, row int) string {
 		return fmt.Sprintf("%s = %s: not a TOML value (write %s = %s)", key, value, key, written)
 	}
 	return fmt.Sprintf("%s = %s: text is written in quotes in TOML (write %s = %s)", key, value, key, written)
+}
+
+// tomlSlip words the TOML parser's error msg at line row of data when the
+// line shows a usual slip: a key and its value written with ":" as in
+// YAML, a key with spaces, a number with thousands separators, a ' within
+// text in single quotes, text in quotes not closed on its line, a comma
+// after the last item of an inline table, or a list in brackets left open
+// on a line above; "" for other errors.
+func tomlSlip(msg string, data []byte, row int) string {
+	l, ok := lineAt(data, row)
+	if !ok {
+		return ""
+	}
+	t := strings.TrimSpace(strings.TrimRight(string(l), "\r"))
+	key, value, hasEq := strings.Cut(t, "=")
+	key, value = strings.TrimSpace(key), strings.TrimSpace(value)
+	at := func(format string, a ...any) string {
+		return fmt.Sprintf("line %d: %s: ", row, t) + fmt.Sprintf(format, a...)
+	}
+	switch {
+	case strings.HasSuffix(msg, "expected character ="):
+		if k, v, ok := strings.Cut(t, ":"); ok && !hasEq && !strings.ContainsAny(k, " \"'") && strings.TrimSpace(v) != "" {
+			return at("TOML writes a key and its value with =, not a colon (write %s = %s)", k, strings.TrimSpace(v))
+		}
+		if hasEq && strings.Contains(key, " ") && !strings.ContainsAny(key, "\"'") {
+			return at("a key is written without spaces (write %s = %s)", strings.Join(strings.Fields(key), "_"), value)
+		}
+	case strings.HasSuffix(msg, "expected newline but got U+002C ','") && strings.Trim(value, "0123456789,.") == "":
+		return at("a number is written without separators (write %s = %s)", key, strings.ReplaceAll(value, ",", ""))
+	case strings.HasPrefix(msg, "toml: expected newline but got") && strings.HasPrefix(value, "'") && strings.Count(value, "'") > 2:
+		return at("the text in single quotes ends at its second ' (write it in double quotes: %s = %q)", key, strings.Trim(value, "'"))
+	case strings.HasSuffix(msg, "basic strings cannot have new lines"), strings.HasSuffix(msg, "literal strings cannot have new lines"):
+		return at("the text in quotes is not closed on its line (close it there, or write text of several lines in triple quotes: \"\"\"…\"\"\")")
+	case strings.HasSuffix(msg, "invalid character at start of key: }"):
+		return at("TOML has no comma after the last item of a mapping in braces {…}")
+	case strings.HasSuffix(msg, "array elements must be separated by commas"):
+		for n := row - 1; n >= 1; n-- {
+			p, _ := lineAt(data, n)
+			if pt := strings.TrimSpace(string(p)); strings.Count(pt, "[") > strings.Count(pt, "]") && strings.Contains(pt, "=") {
+				return fmt.Sprintf("line %d: %s: the list opened with [ is not closed with ] (its items are separated by commas)", n, strings.TrimRight(pt, "\r"))
+			}
+		}
+	}
+	return ""
 }
 
 // isBareClock says whether w is a clock time "HH:MM" ("20:00", "5:30"),

@@ -115,3 +115,27 @@ func TestYAMLSyntaxSlips(t *testing.T) {
 		}
 	}
 }
+
+// A TOML syntax error that shows a usual slip on its line (YAML's colon,
+// a key with a space, a capital True, a number with separators, a quote
+// within single quotes, quotes not closed, a comma closing an inline
+// table) or a list left open on a line above is said so with what to
+// write, instead of the parser's "expected character =" or "array elements
+// must be separated by commas" on the line after.
+func TestTOMLSyntaxSlips(t *testing.T) {
+	for in, want := range map[string]string{
+		"[[feeds]]\nkinds: [\"sunrise\"]\n":                             `line 2: kinds: ["sunrise"]: TOML writes a key and its value with =, not a colon (write kinds = ["sunrise"])`,
+		"[[feeds]]\ndays ahead = 30\n":                                  `line 2: days ahead = 30: a key is written without spaces (write days_ahead = 30)`,
+		"[[feeds]]\nutc = True\n":                                       `line 2: utc = True: not a TOML value (write utc = true)`,
+		"[[feeds]]\ndays_ahead = 1,000\n":                               `line 2: days_ahead = 1,000: a number is written without separators (write days_ahead = 1000)`,
+		"[[sites]]\nname = 'O'Brien farm'\n":                            `line 2: name = 'O'Brien farm': the text in single quotes ends at its second ' (write it in double quotes: name = "O'Brien farm")`,
+		"[[sites]]\nname = \"North\nid = \"a\"\n":                       `line 2: name = "North: the text in quotes is not closed on its line (close it there, or write text of several lines in triple quotes: """…""")`,
+		"[[feeds]]\nkinds = [{kind = \"sunrise\",}]\n":                  `line 2: kinds = [{kind = "sunrise",}]: TOML has no comma after the last item of a mapping in braces {…}`,
+		"[[feeds]]\nkinds = [\"sunrise\", \"sunset\"\ndays_ahead = 3\n": `line 2: kinds = ["sunrise", "sunset": the list opened with [ is not closed with ] (its items are separated by commas)`,
+	} {
+		_, err := Parse(strings.NewReader(in), "toml")
+		if want = "cannot read the file as toml: " + want; !errors.Is(err, ErrUnreadable) || err.Error() != want {
+			t.Errorf("%q:\n%v\nwant\n%s", in, err, want)
+		}
+	}
+}

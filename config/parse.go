@@ -486,8 +486,14 @@ func syntaxMessage(err error, data []byte) string {
 		msg = fmt.Sprintf("line %d, column %d: %s%s", row, col, tomlValueAt(data, row, col), msg)
 	case errors.As(err, &js):
 		off := min(int(js.Offset), len(data))
-		row := bytes.Count(data[:off], []byte("\n")) + 1
-		msg = fmt.Sprintf("line %d: %s%s", row, msg, jsonHint(msg, data[:off]))
+		// the offset is past the character at fault: a line break
+		// within text is on the line it ends
+		row := bytes.Count(data[:max(off-1, 0)], []byte("\n")) + 1
+		hint := jsonHint(msg, data[:off])
+		if hint == "" && formatHint(data, "json") == "" { // not a document of another format
+			hint = jsonValueHint(msg, data, off)
+		}
+		msg = fmt.Sprintf("line %d: %s%s", row, msg, hint)
 	default:
 		msg = yamlTabMessage(msg, data)
 	}
@@ -586,6 +592,49 @@ func jsonHint(msg string, before []byte) string {
 		return ` (a colon is missing between the key and its value, as in "id": "a")`
 	case strings.HasPrefix(msg, `invalid character '"' after`):
 		return " (a comma is missing before it)"
+	}
+	return ""
+}
+
+// jsonValueHint says what the JSON decoder's syntax error msg, at the
+// offset off of data (past the character at fault), shows when it is no
+// slip of jsonHint's: a value JSON does not have (text without quotes,
+// True, NaN, a number with a + or a leading zero), a line break within
+// text, a comma missing between items, a second document, or a bracket
+// never closed; "" for other errors.
+func jsonValueHint(msg string, data []byte, off int) string {
+	word := ""
+	if off >= 1 {
+		w := data[off-1:]
+		if i := bytes.IndexAny(w, " \t\r\n,:]}"); i >= 0 {
+			w = w[:i]
+		}
+		word = string(w)
+	}
+	prev := bytes.TrimRight(data[:max(off-1, 0)], " \t\r\n")
+	switch {
+	case strings.HasSuffix(msg, "looking for beginning of value") && word != "":
+		switch c := word[0]; {
+		case strings.EqualFold(word, "true") || strings.EqualFold(word, "false"):
+			return fmt.Sprintf(" (JSON writes %s in small letters)", strings.ToLower(word))
+		case strings.EqualFold(word, "nan") || strings.EqualFold(word, "infinity"):
+			return " (JSON has no " + word + ": write a number)"
+		case c == '+':
+			return fmt.Sprintf(" (a number does not begin with + in JSON: write %s)", word[1:])
+		case unicode.IsLetter(rune(c)):
+			return fmt.Sprintf(" (JSON writes text in double quotes: %q)", word)
+		}
+	case strings.HasPrefix(msg, "invalid character '\\n' in string literal"):
+		return " (the text in quotes is not closed on its line; JSON writes a line break within text as \\n)"
+	case strings.HasSuffix(msg, "after object key:value pair") || strings.HasSuffix(msg, "after array element"):
+		if word != "" && word[0] >= '0' && word[0] <= '9' && bytes.HasSuffix(prev, []byte("0")) {
+			return " (a number does not begin with 0 in JSON: write it without the leading zeros)"
+		}
+		return " (a comma is missing before it)"
+	case strings.HasSuffix(msg, "after top-level value"):
+		return " (a JSON file holds one document: its sites and feeds go in one {…})"
+	case msg == "unexpected end of JSON input":
+		return " (a { or [ is not closed with its } or ])"
 	}
 	return ""
 }

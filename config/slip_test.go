@@ -139,3 +139,25 @@ func TestTOMLSyntaxSlips(t *testing.T) {
 		}
 	}
 }
+
+// A JSON syntax error is named on the line of the character at fault (a
+// line break within text was named on the next line) with what JSON
+// writes instead.
+func TestJSONSyntaxSlips(t *testing.T) {
+	for in, want := range map[string]string{
+		`{"sites": [{"timezone": Europe/Zurich}]}`:        `line 1: invalid character 'E' looking for beginning of value (JSON writes text in double quotes: "Europe/Zurich")`,
+		`{"feeds": [{"utc": True}]}`:                      `line 1: invalid character 'T' looking for beginning of value (JSON writes true in small letters)`,
+		`{"sites": [{"latitude": NaN}]}`:                  `line 1: invalid character 'N' looking for beginning of value (JSON has no NaN: write a number)`,
+		`{"sites": [{"elevation": +420}]}`:                `line 1: invalid character '+' looking for beginning of value (a number does not begin with + in JSON: write 420)`,
+		`{"sites": [{"elevation": 0420}]}`:                `line 1: invalid character '4' after object key:value pair (a number does not begin with 0 in JSON: write it without the leading zeros)`,
+		"{\"sites\": [{\"id\": \"a\"}\n{\"id\": \"b\"}]}": `line 2: invalid character '{' after array element (a comma is missing before it)`,
+		"{\"sites\": [{\"name\": \"North\nField\"}]}":     `line 1: invalid character '\n' in string literal (the text in quotes is not closed on its line; JSON writes a line break within text as \n)`,
+		"{\"sites\": []}\n{\"feeds\": []}\n":              `line 2: invalid character '{' after top-level value (a JSON file holds one document: its sites and feeds go in one {…})`,
+		"{\"sites\": [{\"id\": \"a\"}\n":                  `line 1: unexpected end of JSON input (a { or [ is not closed with its } or ])`,
+	} {
+		_, err := Parse(strings.NewReader(in), "json")
+		if want = "cannot read the file as json: " + want; !errors.Is(err, ErrUnreadable) || err.Error() != want {
+			t.Errorf("%q:\n%v\nwant\n%s", in, err, want)
+		}
+	}
+}

@@ -366,11 +366,27 @@ func TestValidationErrors(t *testing.T) {
 			if tc.hint != "" && !strings.Contains(got.Hint, tc.hint) {
 				t.Errorf("hint %q does not contain %q", got.Hint, tc.hint)
 			}
-			// The printed error names the file, the path and the value.
+			// The printed error names the file, the line, the path and the
+			// value; a value written is on the line named.
 			line := got.Error()
 			text := err.Error()
-			if !strings.Contains(text, filepath.Join(testdata, tc.file)+": "+line) {
-				t.Errorf("error text lacks the line %q:\n%s", line, text)
+			at := filepath.Join(testdata, tc.file) + ": "
+			if got.Line > 0 {
+				at = fmt.Sprintf("%s:%d: ", filepath.Join(testdata, tc.file), got.Line)
+			}
+			if !strings.Contains(text, at+line) {
+				t.Errorf("error text lacks the line %q:\n%s", at+line, text)
+			}
+			if tc.value != "" {
+				raw, err := os.ReadFile(filepath.Join(testdata, tc.file))
+				if err != nil {
+					t.Fatal(err)
+				}
+				l, _ := lineAt(raw, got.Line)
+				key := tc.path[strings.LastIndexAny(tc.path, ".[")+1:]
+				if !bytes.Contains(l, []byte(strings.Trim(tc.value, `"`))) && !bytes.Contains(l, []byte(key)) {
+					t.Errorf("line %d, %q, holds neither the value %s nor the key %s", got.Line, l, tc.value, key)
+				}
 			}
 			if !strings.HasPrefix(line, tc.path+": ") {
 				t.Errorf("line %q does not start with the path", line)

@@ -20,10 +20,10 @@ import (
 // parsed (nil for the other formats and for input that does not parse),
 // so that readConfig decodes it without parsing the text again: parsing
 // is most of the work of reading a large YAML configuration.
-func duplicateKeys(data []byte, format string) (problems []FieldError, doc *yaml.Node) {
+func duplicateKeys(data []byte, format string) (problems []FieldError, doc *yaml.Node, places map[string]keyPlace) {
 	defer func() {
 		if recover() != nil {
-			problems, doc = nil, nil // hostile input: the decoder reports it
+			problems, doc, places = nil, nil, nil // hostile input: the decoder reports it
 		}
 	}()
 	d := &dupFinder{seen: map[string]keyPlace{}, dups: map[string]bool{}}
@@ -35,7 +35,7 @@ func duplicateKeys(data []byte, format string) (problems []FieldError, doc *yaml
 	case "toml":
 		d.toml(data)
 	}
-	return d.problems, d.doc
+	return d.problems, d.doc, d.seen
 }
 
 type keyPlace struct {
@@ -48,8 +48,11 @@ func (k keyPlace) String() string {
 }
 
 type dupFinder struct {
-	seen     map[string]keyPlace // by path with lower-case keys
-	dups     map[string]bool     // paths reported
+	// seen is where each key is first written, by path with lower-case
+	// keys; in YAML each item of a list too ("feeds[0].kinds[2]"), which
+	// a problem's line is then read from
+	seen     map[string]keyPlace
+	dups     map[string]bool // paths reported
 	problems []FieldError
 
 	// TOML: the lines [from, to) of each repeated key = value or table
@@ -165,7 +168,9 @@ func (d *dupFinder) yaml(data []byte) {
 			}
 		case yaml.SequenceNode:
 			for i, c := range n.Content {
-				walk(c, index(path, i))
+				item := index(path, i)
+				d.seen[item] = keyPlace{line: c.Line, col: c.Column}
+				walk(c, item)
 			}
 		case yaml.ScalarNode:
 			keepDateAsWritten(n)

@@ -59,7 +59,7 @@ func TestDuplicateKeysRefused(t *testing.T) {
 // The same key in different mappings is no duplicate: every site has an id.
 func TestDuplicateKeysOnlyWithinOneMapping(t *testing.T) {
 	for _, format := range []string{"yaml", "json", "toml"} {
-		if dups, _ := duplicateKeys(demoIn(t, format), format); len(dups) != 0 {
+		if dups, _, _ := duplicateKeys(demoIn(t, format), format); len(dups) != 0 {
 			t.Errorf("%s: %v", format, dups)
 		}
 	}
@@ -129,7 +129,7 @@ func TestReadConfigFromDocument(t *testing.T) {
 	}
 	fromDoc := 0
 	for name, data := range inputs {
-		_, doc := duplicateKeys(data, "yaml")
+		_, doc, _ := duplicateKeys(data, "yaml")
 		if doc != nil {
 			fromDoc++
 		} else if name == "demo" {

@@ -143,7 +143,7 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 	}
 	// Duplicate keys are problems of their own; the first of each is kept
 	// so that every other problem of the document is listed with them.
-	dups, doc := duplicateKeys(data, format)
+	dups, doc, places := duplicateKeys(data, format)
 	decoded, decodedAs := data, format
 	if len(dups) > 0 {
 		decoded, decodedAs = withoutDuplicates(data, format)
@@ -245,10 +245,33 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 			}
 		}
 	}
+	for i := range problems {
+		if _, env := fromEnv[problems[i].Path]; !env && !strings.HasPrefix(problems[i].Msg, "duplicate key:") { // a duplicate names its lines
+			problems[i].Line = lineOf(places, problems[i].Path)
+		}
+	}
 	if len(problems) > 0 {
 		return nil, newValidationError(problems)
 	}
 	return c, nil
+}
+
+// lineOf is the line the field at path is written on, as places records
+// the keys (and YAML's list items); for a field not written (a key that
+// is missing, a default), the line of the nearest mapping or list item
+// around it that is; 0 when none is.
+func lineOf(places map[string]keyPlace, path string) int {
+	for p := strings.ToLower(path); p != ""; {
+		if at, ok := places[p]; ok && at.line > 0 {
+			return at.line
+		}
+		i := strings.LastIndexAny(p, ".[")
+		if i < 0 {
+			break
+		}
+		p = p[:i]
+	}
+	return 0
 }
 
 // yamlVersion reads the directives of data, the lines starting with "%"

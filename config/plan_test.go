@@ -174,7 +174,7 @@ func TestPlanDidYouMean(t *testing.T) {
 }
 
 // The did-you-mean reaches `heliocal check` as the rest of the
-// configuration's do: the field, the value as written, the hint.
+// configuration's do: the field, the value as written, the hint, the line.
 func TestPlanDidYouMeanFields(t *testing.T) {
 	_, err := Parse(strings.NewReader(`
 sites: [{id: s, latitude: 47, longitude: 8, timezone: Europe/Zurich}]
@@ -187,12 +187,12 @@ feeds:
 `), "yaml")
 	ps := problemsOf(t, err)
 	want := []FieldError{
-		{"feeds[0].plans[0].date", "Saturdy nearest new-moon", `"saturdy" is not a weekday`, `did you mean "saturday nearest new-moon"?`},
-		{"feeds[0].plans[0].start", "sunsett+30m", `unknown kind "sunsett"`, `did you mean "sunset+30m"?`},
-		{"feeds[0].plans[0].end", "sunrse", `unknown kind "sunrse"`, `did you mean "sunrise"?`},
-		{"feeds[0].plans[1].date", "evry friday", "not a date rule", `did you mean "every friday"?`},
-		{"feeds[0].plans[1].months[0]", "juli", "not a month", `did you mean "jul"?`},
-		{"feeds[0].plans[1].months[1]", "febuary", "not a month", `did you mean "february"?`},
+		{"feeds[0].plans[0].date", "Saturdy nearest new-moon", `"saturdy" is not a weekday`, `did you mean "saturday nearest new-moon"?`, 7},
+		{"feeds[0].plans[0].start", "sunsett+30m", `unknown kind "sunsett"`, `did you mean "sunset+30m"?`, 7},
+		{"feeds[0].plans[0].end", "sunrse", `unknown kind "sunrse"`, `did you mean "sunrise"?`, 7},
+		{"feeds[0].plans[1].date", "evry friday", "not a date rule", `did you mean "every friday"?`, 8},
+		{"feeds[0].plans[1].months[0]", "juli", "not a month", `did you mean "jul"?`, 8},
+		{"feeds[0].plans[1].months[1]", "febuary", "not a month", `did you mean "february"?`, 8},
 	}
 	if !slices.Equal(ps, want) {
 		t.Errorf("problems:\n%v\nwant:\n%v", ps, want)

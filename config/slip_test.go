@@ -68,7 +68,7 @@ func TestYAMLEqualsHint(t *testing.T) {
 	}
 	_, err = Parse(strings.NewReader("service:\n  listen = \":8080\"\nsites:\n  - {id: x, latitude: 1, longitude: 2, timezone: UTC}\nfeeds:\n  - {id: f, site: x, kinds: [sunrise]}\n"), "yaml")
 	got := problemsOf(t, err)
-	wantP := FieldError{Path: "service", Value: `listen = ":8080"`, Msg: "must be a mapping of keys, not text", Hint: `YAML writes a key with a colon, not =: listen: ":8080"`}
+	wantP := FieldError{Path: "service", Value: `listen = ":8080"`, Msg: "must be a mapping of keys, not text", Hint: `YAML writes a key with a colon, not =: listen: ":8080"`, Line: 1}
 	if len(got) != 1 || got[0] != wantP {
 		t.Errorf("problems %+v, want %+v", got, wantP)
 	}
@@ -159,5 +159,46 @@ func TestJSONSyntaxSlips(t *testing.T) {
 		if want = "cannot read the file as json: " + want; !errors.Is(err, ErrUnreadable) || err.Error() != want {
 			t.Errorf("%q:\n%v\nwant\n%s", in, err, want)
 		}
+	}
+}
+
+// Each problem carries the line its field is written on, in every format;
+// a field not written (a missing key), the line of the mapping it is
+// missing from; one set by the environment, none. The file's name is
+// followed by the line, as compilers write it.
+func TestProblemLines(t *testing.T) {
+	for _, tc := range []struct {
+		format, in string
+		env        map[string]string
+		want       map[string]int
+	}{
+		{"yaml", "sites:\n  - id: a\n    latitude: 95\n    longitude: 9\n    timezone: UTC\n  - id: b\n    longitude: 9\nfeeds:\n  - id: f\n    site: a\n    kinds:\n      - sunrise\n      - sunrize\n",
+			nil, map[string]int{"sites[0].latitude": 3, "sites[1].latitude": 6, "feeds[0].kinds[1]": 13}},
+		{"toml", "[[sites]]\nid = \"a\"\nlatitude = 95\nlongitude = 9\ntimezone = \"UTC\"\n\n[[feeds]]\nid = \"f\"\nsite = \"a\"\nkinds = [\"sunrise\"]\ndays_ahead = -3\n",
+			nil, map[string]int{"sites[0].latitude": 3, "feeds[0].days_ahead": 11}},
+		{"json", "{\"sites\": [{\"id\": \"a\",\n \"latitude\": 95, \"longitude\": 9, \"timezone\": \"UTC\"}],\n \"feeds\": [{\"id\": \"f\", \"site\": \"a\", \"kinds\": [\"sunrise\"]}]}\n",
+			nil, map[string]int{"sites[0].latitude": 2}},
+		{"yaml", "service:\n  listen: \":8080\"\nsites:\n  - {id: a, latitude: 95, longitude: 9, timezone: UTC}\nfeeds:\n  - {id: f, site: a, kinds: [sunrise]}\n",
+			map[string]string{"HELIOCAL_LISTEN": "nowhere"}, map[string]int{"service.listen": 0, "sites[0].latitude": 4}},
+	} {
+		_, err := ParseEnv(strings.NewReader(tc.in), tc.format, func(k string) (string, bool) { v, ok := tc.env[k]; return v, ok })
+		got := map[string]int{}
+		for _, p := range problemsOf(t, err) {
+			got[p.Path] = p.Line
+		}
+		for path, line := range tc.want {
+			if l, ok := got[path]; !ok || l != line {
+				t.Errorf("%s: %s on line %d (found: %v), want line %d\n%v", tc.format, path, l, ok, line, err)
+			}
+		}
+	}
+	var ve *ValidationError
+	_, err := Parse(strings.NewReader("sites:\n  - {id: a, latitude: 95, longitude: 9, timezone: UTC}\n"), "yaml")
+	if !errors.As(err, &ve) {
+		t.Fatalf("%v", err)
+	}
+	ve.Source = "farm.yaml"
+	if want := "farm.yaml:2: sites[0].latitude: 95: must be within -90..90"; !strings.HasPrefix(ve.Error(), want) {
+		t.Errorf("%s\nwant it to begin %s", ve, want)
 	}
 }

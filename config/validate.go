@@ -48,6 +48,10 @@ type FieldError struct {
 	Value string // the offending value as written, e.g. "95"; empty when missing
 	Msg   string // what is wrong, e.g. "must be within -90..90"
 	Hint  string // how to fix it, may be empty
+	// Line is the line of the file the field is written on (or, when it
+	// is missing, the mapping it is missing from); 0 when not known.
+	// ValidationError writes it after the file's name: "farm.yaml:4: ".
+	Line int
 }
 
 func (e FieldError) Error() string {
@@ -89,16 +93,19 @@ func quoteValue(v string) string {
 // ValidationError lists every problem found in a configuration, one per
 // line, ordered by path (service, sites, feeds).
 type ValidationError struct {
-	Source   string // file name, prefixed to each line when set
+	Source   string // file name, prefixed to each line when set, with the problem's line when known
 	Problems []FieldError
 }
 
 func (e *ValidationError) Error() string {
 	lines := make([]string, len(e.Problems))
 	for i, p := range e.Problems {
-		if e.Source != "" {
+		switch {
+		case e.Source != "" && p.Line > 0:
+			lines[i] = fmt.Sprintf("%s:%d: %s", e.Source, p.Line, p.Error())
+		case e.Source != "":
 			lines[i] = e.Source + ": " + p.Error()
-		} else {
+		default:
 			lines[i] = p.Error()
 		}
 	}

@@ -42,9 +42,10 @@ func TestConfigFromStdin(t *testing.T) {
 			}
 		})
 	}
-	// Problems name standard input where a file name would be.
+	// Problems name standard input where a file name would be, with the
+	// line.
 	code, _, errOut := runStdin(t, readConfig(t, "bad-latitude.yaml"), "check", "-c", "-")
-	if code != exitInput || !strings.Contains(errOut, "standard input: sites[0].latitude: 95: must be within -90..90") {
+	if code != exitInput || !strings.Contains(errOut, "standard input:5: sites[0].latitude: 95: must be within -90..90") {
 		t.Errorf("exit %d, stderr:\n%s", code, errOut)
 	}
 	code, _, errOut = runStdin(t, "  \n", "events", "--config", "-", "--site", "x")
@@ -113,12 +114,12 @@ func TestCheckJSON(t *testing.T) {
 		if p.Field == "" || p.Message == "" {
 			t.Errorf("problem without field or message: %+v", p)
 		}
-		if p.Field == "sites[0].latitude" && p.Value == "95" && strings.Contains(p.Message, "-90..90") {
+		if p.Field == "sites[0].latitude" && p.Value == "95" && strings.Contains(p.Message, "-90..90") && p.Line == 8 {
 			found = true
 		}
 	}
 	if !found {
-		t.Errorf("no problem for sites[0].latitude = 95 in %s", out)
+		t.Errorf("no problem for sites[0].latitude = 95 on line 8 in %s", out)
 	}
 
 	if code, _, errOut := runCLI(t, "check", "--format", "yaml"); code != exitInput || !strings.Contains(errOut, `--format: "yaml"`) {

@@ -88,7 +88,10 @@ type checkReport struct {
 }
 
 type checkProblem struct {
-	Field   string `json:"field"`
+	Field string `json:"field"`
+	// Line is the line of the file the field is written on (or the
+	// mapping it is missing from); absent when not known.
+	Line    int    `json:"line,omitempty"`
 	Value   string `json:"value"`
 	Message string `json:"message"`
 	Hint    string `json:"hint,omitempty"`
@@ -151,7 +154,7 @@ func checkProblems(g *globals, src config.Source, err error) error {
 	r := &checkReport{Configuration: src.String(), Sites: []checkSite{}, Feeds: []checkFeed{}, Warnings: []string{}, Notes: []string{}}
 	if errors.As(err, &ve) {
 		for _, p := range ve.Problems {
-			r.Problems = append(r.Problems, checkProblem{Field: p.Path, Value: p.Value, Message: p.Msg, Hint: p.Hint})
+			r.Problems = append(r.Problems, checkProblem{Field: p.Path, Line: p.Line, Value: p.Value, Message: p.Msg, Hint: p.Hint})
 		}
 	} else {
 		r.Problems = []checkProblem{{Message: err.Error()}}

@@ -116,9 +116,9 @@ func TestCheckBadDates(t *testing.T) {
 		t.Fatalf("exit %d, want %d: %s", code, exitInput, errOut)
 	}
 	for _, line := range []string{
-		"standard input: feeds[0].kinds[0].dates[1]: 2027-02-30: not a date",
-		"standard input: feeds[0].kinds[0].dates[2]: 2027-06-12: listed twice, also as feeds[0].kinds[0].dates[0] (remove one)",
-		"standard input: feeds[0].kinds[0].dates[4]: 2201-01-01: outside the supported range 1800-01-01..2200-12-31",
+		"standard input:16: feeds[0].kinds[0].dates[1]: 2027-02-30: not a date",
+		"standard input:16: feeds[0].kinds[0].dates[2]: 2027-06-12: listed twice, also as feeds[0].kinds[0].dates[0] (remove one)",
+		"standard input:16: feeds[0].kinds[0].dates[4]: 2201-01-01: outside the supported range 1800-01-01..2200-12-31",
 	} {
 		if !strings.Contains(errOut, line) {
 			t.Errorf("stderr lacks %q:\n%s", line, errOut)

@@ -161,7 +161,7 @@ func TestHealthNamesEveryConfigProblem(t *testing.T) {
 	two, thirty, one := invalid(fmt.Sprintf(site, 0, "95", "200")), invalid(many.String()), invalid(fmt.Sprintf(site, 0, "95", "9.7"))
 	// each problem as the log's line gives it, with the file's name
 	lines := strings.Split(two.Error(), "\n")
-	if len(lines) != 2 || !strings.HasPrefix(lines[0], "heliocal.yaml: sites[0].latitude: 95: must be within -90..90") || !strings.HasPrefix(lines[1], "heliocal.yaml: sites[0].longitude: 200: ") {
+	if len(lines) != 2 || !strings.HasPrefix(lines[0], "heliocal.yaml:2: sites[0].latitude: 95: must be within -90..90") || !strings.HasPrefix(lines[1], "heliocal.yaml:2: sites[0].longitude: 200: ") {
 		t.Fatalf("the problems of a latitude 95 and a longitude 200:\n%v", two)
 	}
 	lat, lon := lines[0], lines[1]

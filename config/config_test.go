@@ -2,6 +2,7 @@ package config
 
 import (
 	"bytes"
+	"encoding/binary"
 	"errors"
 	"fmt"
 	"io"
@@ -14,7 +15,8 @@ import (
 	"strings"
 	"testing"
 	"time"
-	_ "time/tzdata" // the tests do not depend on the machine's zoneinfo
+	_ "time/tzdata"
+	"unicode/utf16" // the tests do not depend on the machine's zoneinfo
 )
 
 const testdata = "../testdata/config"
@@ -528,9 +530,17 @@ func TestFormatParity(t *testing.T) {
 }
 
 // A file that starts with a UTF-8 byte order mark, as some Windows editors
-// write them, or that ends its lines with CR LF, reads as the same file
-// without, in every format.
+// write them, that is UTF-16 with its byte order mark (Windows' "Unicode"),
+// or that ends its lines with CR LF, reads as the same file in UTF-8 with
+// LF, in every format.
 func TestByteOrderMarkAndCRLF(t *testing.T) {
+	utf16Text := func(b []byte, order binary.AppendByteOrder) []byte {
+		out := order.AppendUint16(nil, 0xFEFF)
+		for _, u := range utf16.Encode([]rune(string(b))) {
+			out = order.AppendUint16(out, u)
+		}
+		return out
+	}
 	for _, name := range []string{"parity.yaml", "parity.toml", "parity.json"} {
 		raw, err := os.ReadFile(filepath.Join(testdata, name))
 		if err != nil {
@@ -545,6 +555,8 @@ func TestByteOrderMarkAndCRLF(t *testing.T) {
 		for what, in := range map[string][]byte{
 			"byte order mark": append([]byte("\ufeff"), raw...),
 			"CR LF":           bytes.ReplaceAll(raw, []byte("\n"), []byte("\r\n")),
+			"UTF-16LE text":   utf16Text(raw, binary.LittleEndian),
+			"UTF-16BE text":   utf16Text(raw, binary.BigEndian),
 		} {
 			c, err := Parse(bytes.NewReader(in), format)
 			if err != nil {

@@ -3,6 +3,7 @@ package config
 import (
 	"bytes"
 	_ "embed"
+	"encoding/binary"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -19,6 +20,7 @@ import (
 	"sync"
 	"time"
 	"unicode"
+	"unicode/utf16"
 	"unicode/utf8"
 
 	"github.com/go-viper/mapstructure/v2"
@@ -119,6 +121,13 @@ func parseFrom(r io.Reader, format string, env LookupEnv, dir string) (*Config, 
 // from, where a relative skyline file name is read from ("" for the
 // working directory: standard input, the demo).
 func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, err error) {
+	// UTF-16 with its byte order mark, as Windows editors save "Unicode"
+	// text: read as the same text in UTF-8 (the YAML decoder reads it,
+	// the TOML and JSON decoders see a character out of place)
+	data = fromUTF16(data)
+	if line, b, ok := notUTF8(data); ok {
+		return nil, fmt.Errorf("%w as %s: line %d: the byte 0x%02X is not UTF-8 text, which a configuration is written in (save the file as UTF-8)", ErrUnreadable, format, line, b)
+	}
 	if format != "yaml" {
 		// A byte order mark, which some Windows editors write at the
 		// start of a UTF-8 file: the YAML decoder skips it, the TOML and
@@ -272,6 +281,44 @@ func lineOf(places map[string]keyPlace, path string) int {
 		p = p[:i]
 	}
 	return 0
+}
+
+// fromUTF16 is data in UTF-8 when it is UTF-16 text that begins with its
+// byte order mark (FF FE little-endian, FE FF big-endian), data itself
+// otherwise. A last odd byte is dropped; unpaired surrogates become
+// U+FFFD.
+func fromUTF16(data []byte) []byte {
+	var order binary.ByteOrder
+	switch {
+	case bytes.HasPrefix(data, []byte{0xFF, 0xFE}):
+		order = binary.LittleEndian
+	case bytes.HasPrefix(data, []byte{0xFE, 0xFF}):
+		order = binary.BigEndian
+	default:
+		return data
+	}
+	units := make([]uint16, 0, len(data)/2-1)
+	for i := 2; i+1 < len(data); i += 2 {
+		units = append(units, order.Uint16(data[i:]))
+	}
+	return []byte(string(utf16.Decode(units)))
+}
+
+// notUTF8 finds the first byte of data that is not UTF-8 text (a file
+// saved as Latin-1 or Windows-1252: "caf\xe9"), with its line; the
+// decoders say "incomplete UTF-8 octet sequence" without one.
+func notUTF8(data []byte) (line int, b byte, found bool) {
+	if utf8.Valid(data) {
+		return 0, 0, false
+	}
+	for i := 0; i < len(data); {
+		r, size := utf8.DecodeRune(data[i:])
+		if r == utf8.RuneError && size <= 1 {
+			return bytes.Count(data[:i], []byte("\n")) + 1, data[i], true
+		}
+		i += size
+	}
+	return 0, 0, false
 }
 
 // yamlVersion reads the directives of data, the lines starting with "%"
@@ -644,7 +691,7 @@ func jsonValueHint(msg string, data []byte, off int) string {
 			return " (JSON has no " + word + ": write a number)"
 		case c == '+':
 			return fmt.Sprintf(" (a number does not begin with + in JSON: write %s)", word[1:])
-		case unicode.IsLetter(rune(c)):
+		case c < utf8.RuneSelf && unicode.IsLetter(rune(c)):
 			return fmt.Sprintf(" (JSON writes text in double quotes: %q)", word)
 		}
 	case strings.HasPrefix(msg, "invalid character '\\n' in string literal"):

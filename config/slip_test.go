@@ -202,3 +202,23 @@ func TestProblemLines(t *testing.T) {
 		t.Errorf("%s\nwant it to begin %s", ve, want)
 	}
 }
+
+// A file that is not UTF-8 (saved as Latin-1: "café" as caf\xe9) is
+// refused naming the line and the byte, in every format, not with the
+// decoders' "incomplete UTF-8 octet sequence" without a line.
+func TestNotUTF8(t *testing.T) {
+	for format, in := range map[string]string{
+		"yaml": "sites:\n  - id: a\n    name: Caf\xe9 du Nord\n",
+		"toml": "[[sites]]\nid = \"a\"\nname = \"Caf\xe9 du Nord\"\n",
+		"json": "{\"sites\": [{\"id\": \"a\",\n\"name\": \"Caf\xe9 du Nord\"}]}",
+	} {
+		_, err := Parse(strings.NewReader(in), format)
+		want := "cannot read the file as " + format + ": line 3: the byte 0xE9 is not UTF-8 text, which a configuration is written in (save the file as UTF-8)"
+		if format == "json" {
+			want = strings.Replace(want, "line 3", "line 2", 1)
+		}
+		if !errors.Is(err, ErrUnreadable) || err.Error() != want {
+			t.Errorf("%s: %v\nwant %s", format, err, want)
+		}
+	}
+}

@@ -755,6 +755,15 @@ func TestLoadErrors(t *testing.T) {
 	if !errors.Is(err, fs.ErrNotExist) || err.Error() != filepath.Join(testdata, "does-not-exist.yaml")+": no such file" {
 		t.Errorf("missing file: %v", err)
 	}
+	// a link to a file that is gone says so, not "no such file" of a name
+	// that is there
+	link := filepath.Join(t.TempDir(), "heliocal.yaml")
+	if err := os.Symlink("/etc/heliocal/farm.yaml.old", link); err == nil {
+		_, err = Load(link)
+		if want := link + ": no such file: a symbolic link to /etc/heliocal/farm.yaml.old, which does not exist"; !errors.Is(err, fs.ErrNotExist) || err == nil || err.Error() != want {
+			t.Errorf("dangling link: %v\nwant %s", err, want)
+		}
+	}
 	_, err = Load(filepath.Join(testdata, "parity.ini"))
 	if err == nil || !strings.Contains(err.Error(), `unknown file extension ".ini"`) {
 		t.Errorf("bad extension: %v", err)

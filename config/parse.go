@@ -2193,6 +2193,9 @@ func LoadEnv(path string, env LookupEnv) (*Config, error) {
 	f, err := os.Open(path)
 	if err != nil {
 		if errors.Is(err, fs.ErrNotExist) {
+			if target, lerr := os.Readlink(path); lerr == nil { // a link to a file moved or removed
+				return nil, fmt.Errorf("%s: %w: a symbolic link to %s, which does not exist", path, errNoSuchFile, target)
+			}
 			return nil, fmt.Errorf("%s: %w", path, errNoSuchFile)
 		}
 		var pe *fs.PathError

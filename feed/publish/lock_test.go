@@ -84,7 +84,7 @@ func TestLockWaitBounded(t *testing.T) {
 	if !errors.Is(err, ErrLocked) {
 		t.Fatalf("error %v, want ErrLocked", err)
 	}
-	for _, want := range []string{"output directory " + dir, "locked by another publish", LockName} {
+	for _, want := range []string{"output directory " + dir, "locked by another publish", LockName, "; " + nothingChanged} {
 		if !strings.Contains(err.Error(), want) {
 			t.Errorf("message %q does not say %q", err, want)
 		}
@@ -213,7 +213,7 @@ func TestMixedConfigurationsRefused(t *testing.T) {
 			if !errors.Is(err, ErrMixedRuns) {
 				t.Fatalf("error %v, want ErrMixedRuns", err)
 			}
-			for _, want := range []string{tc.want, "feeds-0-of-2.json", "refusing to mix two configurations in one directory"} {
+			for _, want := range []string{tc.want, "feeds-0-of-2.json", "refusing to mix two configurations in one directory", "; " + nothingChanged} {
 				if !strings.Contains(err.Error(), want) {
 					t.Errorf("message %q does not say %q", err, want)
 				}

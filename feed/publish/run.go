@@ -154,19 +154,21 @@ func (w *Writer) stageFile(src Source, f File) (stagedFeed, error) {
 func (r *publishRun) commit(ctx context.Context) (err error) {
 	unlock, err := r.w.lockDir(ctx)
 	if err != nil {
-		return err
+		return fmt.Errorf("%w; %s", err, nothingChanged)
 	}
 	defer unlock()
 	r.w.removePrevs()
+	// until the undo log begins, nothing published is changed: a failure
+	// says so, as one while staging does
 	if err := r.restage(ctx); err != nil {
-		return err
+		return fmt.Errorf("%w; %s", err, nothingChanged)
 	}
 	sets, err := r.w.scanManifests()
 	if err != nil {
-		return err
+		return fmt.Errorf("%w; %s", err, nothingChanged)
 	}
 	if err := r.w.checkMix(sets, r.digest, r.opts.Shard); err != nil {
-		return err
+		return fmt.Errorf("%w; %s", err, nothingChanged)
 	}
 	r.w.beginUndo()
 	defer func() { err = r.w.endUndo(err) }()

@@ -153,6 +153,7 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 	// Duplicate keys are problems of their own; the first of each is kept
 	// so that every other problem of the document is listed with them.
 	dups, doc, places := duplicateKeys(data, format)
+	yamlDoc := doc // the values as written, for the problems
 	decoded, decodedAs := data, format
 	if len(dups) > 0 {
 		decoded, decodedAs = withoutDuplicates(data, format)
@@ -182,6 +183,10 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		problems = decodeProblems(err)
 		settings := v.AllSettings() // built afresh by each call: once for all problems
 		for i := range problems {
+			if n := yamlScalarAt(yamlDoc, problems[i].Path); n != nil && strings.HasSuffix(problems[i].Msg, "not a number") &&
+				(n.Tag == "!!int" || n.Tag == "!!float") && n.Style == 0 && n.Value != problems[i].Value {
+				problems[i].Value = n.Value // 1e3 as written, not the 1000 it is
+			}
 			if problems[i].Value == "" { // a mapping or a list given as one value: name it
 				problems[i].Value = rawAt(settings, problems[i].Path)
 				if problems[i].Msg == "must be a list, not a mapping" && problems[i].Hint == "" {
@@ -263,6 +268,46 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		return nil, newValidationError(problems)
 	}
 	return c, nil
+}
+
+// yamlScalarAt is the scalar node of the YAML document doc at a decoder
+// path ("sites[0].name", keys in any case); nil when there is none there.
+func yamlScalarAt(doc *yaml.Node, path string) *yaml.Node {
+	if doc == nil || doc.Kind != yaml.DocumentNode || len(doc.Content) != 1 {
+		return nil
+	}
+	n := doc.Content[0]
+	for _, seg := range strings.Split(path, ".") {
+		name, idx, _ := strings.Cut(seg, "[")
+		if name != "" {
+			if n.Kind != yaml.MappingNode {
+				return nil
+			}
+			var next *yaml.Node
+			for i := 0; i+1 < len(n.Content); i += 2 {
+				if strings.EqualFold(n.Content[i].Value, name) {
+					next = n.Content[i+1]
+					break
+				}
+			}
+			if next == nil {
+				return nil
+			}
+			n = next
+		}
+		for idx != "" {
+			num, rest, _ := strings.Cut(idx, "]")
+			i, err := strconv.Atoi(num)
+			if err != nil || n.Kind != yaml.SequenceNode || i < 0 || i >= len(n.Content) {
+				return nil
+			}
+			n, idx = n.Content[i], strings.TrimPrefix(rest, "[")
+		}
+	}
+	if n.Kind != yaml.ScalarNode {
+		return nil
+	}
+	return n
 }
 
 // lineOf is the line the field at path is written on, as places records

@@ -222,3 +222,15 @@ func TestNotUTF8(t *testing.T) {
 		}
 	}
 }
+
+// A number where text belongs is named as it is written, not as the number
+// the decoder made of it: 1e3, not 1000; 0x1F, not 31.
+func TestNumberNamedAsWritten(t *testing.T) {
+	for _, v := range []string{"1e3", "0x1F", ".5", "-7"} {
+		_, err := Parse(strings.NewReader("sites:\n  - {id: a, name: "+v+", latitude: 1, longitude: 2, timezone: UTC}\nfeeds:\n  - {id: f, site: a, kinds: [sunrise]}\n"), "yaml")
+		ps := problemsOf(t, err)
+		if len(ps) != 1 || ps[0].Path != "sites[0].name" || ps[0].Value != v || ps[0].Msg != "must be text, not a number" {
+			t.Errorf("name %s: %v", v, err)
+		}
+	}
+}

@@ -72,6 +72,44 @@ func BenchmarkServeFeedIdentity(b *testing.B) {
 	}
 }
 
+// BenchmarkServeFeedIdentityRevalidated: the handler's cost, for a client
+// that does not take gzip, of the fleet feed of BenchmarkServeFeedIdentity
+// asked for with an ETag it no longer has (as every subscribed calendar
+// revalidates after a refresh that moved the window: 200 and the whole
+// feed) and of its last 100 bytes (a Range: 206), held in its gzip form
+// and held whole.
+func BenchmarkServeFeedIdentityRevalidated(b *testing.B) {
+	name, data, held := fleetBundle(b, feedGzip(nil))
+	whole := &publish.Bundle{Files: []publish.File{file(name, "", data)}}
+	for _, tc := range []struct {
+		form   string
+		bundle *publish.Bundle
+	}{{"gzip", held}, {"whole", whole}} {
+		for _, rq := range []struct {
+			what, header, value string
+			code, n             int
+		}{
+			{"stale", "If-None-Match", `"0000"`, http.StatusOK, len(data)},
+			{"range", "Range", "bytes=-100", http.StatusPartialContent, 100},
+		} {
+			b.Run("held="+tc.form+"/req="+rq.what, func(b *testing.B) {
+				s, _ := newTestServer(b, Options{Build: func(context.Context, GzipFunc) (*publish.Bundle, error) { return tc.bundle, nil }})
+				h := s.Handler()
+				req := httptest.NewRequest("GET", "/"+name, nil)
+				req.Header.Set(rq.header, rq.value)
+				b.ReportAllocs()
+				for b.Loop() {
+					w := discardWriter{h: http.Header{}}
+					h.ServeHTTP(&w, req)
+					if w.code != rq.code || w.n != rq.n {
+						b.Fatalf("status %d, %d bytes; want %d, %d", w.code, w.n, rq.code, rq.n)
+					}
+				}
+			})
+		}
+	}
+}
+
 // BenchmarkConditionalGET: the handler's cost for a revalidation answered
 // 304 (no network).
 func BenchmarkConditionalGET(b *testing.B) {

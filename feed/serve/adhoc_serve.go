@@ -207,7 +207,7 @@ func (s *adhocSink) asset(name string, mod time.Time) *asset {
 	}
 	s.zw.Close()
 	if !gzipSaves(s.gz.Len(), s.n) { // hardly compressible: kept as it is, as newAdhocAsset would
-		return adhocAssetOf(name, gunzip(s.gz.Bytes()), nil, s.n, mod)
+		return adhocAssetOf(name, gunzip(s.gz.Bytes(), s.n), nil, s.n, mod)
 	}
 	return adhocAssetOf(name, nil, bytes.Clone(s.gz.Bytes()), s.n, mod)
 }

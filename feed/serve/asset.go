@@ -164,49 +164,100 @@ func adhocSum(b []byte) string {
 	return hex.EncodeToString(sum[:])
 }
 
-// gunzipReader is the decompressed form of gz, size bytes long, inflated
-// on the first read or on a seek to other than its start or end: a
-// conditional request answered 304 or a HEAD (http.ServeContent seeks to
-// the end and back for the size) never inflates it.
+// gunzipReader is the decompressed form of gz, size bytes long, for
+// http.ServeContent: a conditional request that is not answered 304 (a
+// calendar revalidating with an ETag from before a refresh) and a range.
+// A seek only moves the offset, so a 304 or a HEAD (ServeContent seeks to
+// the end and back for the size) never inflates gz. A read inflates from
+// the start, or from where the last read ended, into the caller's buffer,
+// passing over the bytes before the offset: the feed is never held whole,
+// as the response to an unconditional request never holds it (gunzipTo).
+// A read before where the inflating has reached (a multipart range whose
+// parts go backwards) inflates the feed whole once, into whole, and reads
+// from it from then on: no request inflates it more than twice.
 type gunzipReader struct {
-	gz   []byte
-	size int64
-	off  int64 // the offset sought before r was made
-	r    *bytes.Reader
+	gz    []byte
+	size  int64
+	off   int64         // the offset the next read starts at
+	zr    *kgzip.Reader // nil until the first read; then inflated up to pos
+	pos   int64
+	whole []byte // the feed inflated whole, after a read backwards
 }
 
-func (g *gunzipReader) open() {
-	if g.r == nil {
-		g.r = bytes.NewReader(gunzip(g.gz))
-		g.r.Seek(g.off, io.SeekStart) // within the bytes: cannot fail
+func (g *gunzipReader) Read(p []byte) (int, error) {
+	if g.off >= g.size {
+		return 0, io.EOF
+	}
+	if g.whole == nil && g.zr != nil && g.off < g.pos {
+		g.whole = gunzip(g.gz, int(g.size))
+		g.release()
+	}
+	if g.whole != nil {
+		n := copy(p, g.whole[g.off:])
+		g.off += int64(n)
+		return n, nil
+	}
+	if g.zr == nil {
+		g.zr = gunzipReaders.Get().(*kgzip.Reader)
+		if err := g.zr.Reset(bytes.NewReader(g.gz)); err != nil {
+			panic(fmt.Sprintf("serve: decompressing a feed: %v", err)) // gz was compressed here
+		}
+	}
+	if skip := g.off - g.pos; skip > 0 {
+		if _, err := io.CopyN(io.Discard, g.zr, skip); err != nil {
+			panic(fmt.Sprintf("serve: decompressing a feed: %v", err)) // gz holds size bytes
+		}
+		g.pos = g.off
+	}
+	n, err := g.zr.Read(p[:min(int64(len(p)), g.size-g.off)])
+	g.pos += int64(n)
+	g.off += int64(n)
+	if err == io.EOF && g.off < g.size {
+		err = io.ErrUnexpectedEOF
+	}
+	if err == io.EOF {
+		err = nil // the next read, at size, says so
+	}
+	return n, err
+}
+
+func (g *gunzipReader) Seek(off int64, whence int) (int64, error) {
+	switch whence {
+	case io.SeekCurrent:
+		off += g.off
+	case io.SeekEnd:
+		off += g.size
+	}
+	if off < 0 {
+		return 0, errors.New("serve: seek before the start of a feed")
+	}
+	g.off = off
+	return off, nil
+}
+
+// release gives the decompressor back for another request. Call it only
+// once nothing reads g any more: http.ServeContent reads the parts of a
+// multipart range from a goroutine that may outlive it.
+func (g *gunzipReader) release() {
+	if g.zr != nil {
+		gunzipReaders.Put(g.zr)
+		g.zr = nil
 	}
 }
 
-// gunzip is the decompressed form of gz, compressed here.
-func gunzip(gz []byte) []byte {
+// gunzip is the decompressed form of gz, compressed here, of size bytes
+// (a guess: any size gives the bytes, the right one a single allocation).
+func gunzip(gz []byte, size int) []byte {
 	zr, err := kgzip.NewReader(bytes.NewReader(gz))
-	var data []byte
+	var b bytes.Buffer
 	if err == nil {
-		data, err = io.ReadAll(zr)
+		b.Grow(size + bytes.MinRead) // ReadFrom grows the buffer unless MinRead bytes are free
+		_, err = b.ReadFrom(zr)
 	}
 	if err != nil { // gz was compressed here: it cannot be corrupt
 		panic(fmt.Sprintf("serve: decompressing a feed: %v", err))
 	}
-	return data
-}
-
-func (g *gunzipReader) Read(p []byte) (int, error) { g.open(); return g.r.Read(p) }
-
-func (g *gunzipReader) Seek(off int64, whence int) (int64, error) {
-	if g.r == nil && off == 0 && whence != io.SeekCurrent {
-		g.off = 0
-		if whence == io.SeekEnd {
-			g.off = g.size
-		}
-		return g.off, nil
-	}
-	g.open()
-	return g.r.Seek(off, whence)
+	return b.Bytes()
 }
 
 // gunzipTo writes the decompressed form of gz to w as it is inflated,

@@ -236,7 +236,12 @@ func writeAsset(w http.ResponseWriter, r *http.Request, a *asset, cacheControl [
 			writeInflated(w, r, a)
 			return
 		}
-		body = &gunzipReader{gz: a.gz, size: int64(a.size)}
+		g := &gunzipReader{gz: a.gz, size: int64(a.size)}
+		http.ServeContent(w, r, "", a.modTime, g)
+		if !strings.Contains(r.Header.Get("Range"), ",") { // one range at most: ServeContent read g itself
+			g.release()
+		}
+		return
 	default:
 		body = bytes.NewReader(a.data)
 		h["Etag"] = a.etag

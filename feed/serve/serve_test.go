@@ -14,6 +14,7 @@ import (
 	"maps"
 	"net/http"
 	"net/http/httptest"
+	"runtime"
 	"slices"
 	"strconv"
 	"strings"
@@ -612,7 +613,7 @@ func TestWholeResponse(t *testing.T) {
 	for _, method := range []string{"GET", "HEAD"} {
 		for _, gz := range []bool{false, true} {
 			var enc []string
-			want := gunzip(a.gz)
+			want := gunzip(a.gz, a.size)
 			if gz {
 				enc = []string{"Accept-Encoding", "gzip"}
 				want = a.gz
@@ -726,7 +727,7 @@ func TestFeedHeldInGzipForm(t *testing.T) {
 	a := files["meadowbrook-sun.ics"]
 	if a.data != nil || a.gz == nil {
 		t.Errorf("meadowbrook-sun.ics held with %d bytes and a gzip form of %d, want its gzip form alone", len(a.data), len(a.gz))
-	} else if got := gunzip(a.gz); !bytes.Equal(got, want.File("meadowbrook-sun.ics").Data) || a.size != len(got) {
+	} else if got := gunzip(a.gz, a.size); !bytes.Equal(got, want.File("meadowbrook-sun.ics").Data) || a.size != len(got) {
 		t.Errorf("meadowbrook-sun.ics: its gzip form holds %d bytes (size %d), not the feed's %d", len(got), a.size, len(want.File("meadowbrook-sun.ics").Data))
 	}
 	for _, name := range []string{"kestrel-ridge-moon.ics", "feeds.json", "index.html"} {
@@ -762,6 +763,7 @@ func TestHeldFeedAnswersAsWhole(t *testing.T) {
 			{"Range", "bytes=" + strconv.Itoa(n-10) + "-" + strconv.Itoa(n+10)},
 			{"Range", "bytes=" + strconv.Itoa(10*n) + "-"}, // not satisfiable: 416
 			{"Range", "bytes=0-9,20-29"},                   // multipart/byteranges
+			{"Range", "bytes=50-59,0-9,30-39"},             // its parts going backwards
 			{"If-None-Match", etag},
 			{"If-None-Match", `"0000"`},
 			{"If-None-Match", `"0000"`, "Range", "bytes=5-15"},
@@ -803,8 +805,8 @@ func TestHeldFeedAnswersAsWhole(t *testing.T) {
 
 // http.ServeContent learns a body's size by seeking to its end and back
 // to its start: a feed held in its gzip form answers from the size it
-// keeps, so a HEAD costs no decompression; a read, or a seek anywhere
-// else, inflates it, and reads from where it was sought.
+// keeps, so a HEAD costs no decompression; a seek anywhere only moves the
+// offset, and a read inflates from where it was sought.
 func TestGunzipReaderSize(t *testing.T) {
 	data := icsFor("meadowbrook-sun", 40, "a")
 	gz := gzipBytes(data)
@@ -817,8 +819,8 @@ func TestGunzipReaderSize(t *testing.T) {
 	}
 	g = &gunzipReader{gz: gz, size: int64(len(data))}
 	g.Seek(0, io.SeekEnd)
-	if n, err := g.Seek(0, io.SeekStart); n != 0 || err != nil || g.r != nil {
-		t.Errorf("Seek back to the start: %d, %v, inflated %v; want 0 without inflating", n, err, g.r != nil)
+	if n, err := g.Seek(0, io.SeekStart); n != 0 || err != nil || g.zr != nil || g.whole != nil {
+		t.Errorf("Seek back to the start: %d, %v, inflated %v; want 0 without inflating", n, err, g.zr != nil || g.whole != nil)
 	}
 	if got, err := io.ReadAll(g); err != nil || !bytes.Equal(got, data) {
 		t.Errorf("read from the start: %d bytes, %v; want the %d of the feed", len(got), err, len(data))
@@ -829,5 +831,111 @@ func TestGunzipReaderSize(t *testing.T) {
 	}
 	if got, err := io.ReadAll(g); err != nil || !bytes.Equal(got, data[100:]) {
 		t.Errorf("read from 100: %d bytes, %v; want the feed's last %d", len(got), err, len(data)-100)
+	}
+}
+
+// A feed held in its gzip form is inflated into the reader's buffer as it
+// is read, never whole, wherever the reads start as long as they go
+// forwards (a conditional request answered 200, a range, the parts of a
+// multipart range in order); a read before where the inflating has reached
+// inflates it whole once. Every read gives the feed's own bytes.
+func TestGunzipReaderStreams(t *testing.T) {
+	data := icsFor("meadowbrook-sun", 400, "a")
+	gz := gzipBytes(data)
+	g := &gunzipReader{gz: gz, size: int64(len(data))}
+	var got []byte
+	buf := make([]byte, 4096)
+	for {
+		n, err := g.Read(buf)
+		got = append(got, buf[:n]...)
+		if err == io.EOF {
+			break
+		} else if err != nil {
+			t.Fatalf("read at %d: %v", len(got), err)
+		}
+	}
+	if !bytes.Equal(got, data) || g.whole != nil {
+		t.Errorf("read in 4 kB pieces: %d bytes of %d, held whole %v; want the feed, never held whole", len(got), len(data), g.whole != nil)
+	}
+	g.release()
+
+	g = &gunzipReader{gz: gz, size: int64(len(data))}
+	read := func(off, n int) []byte {
+		t.Helper()
+		if _, err := g.Seek(int64(off), io.SeekStart); err != nil {
+			t.Fatalf("Seek to %d: %v", off, err)
+		}
+		b := make([]byte, n)
+		if _, err := io.ReadFull(g, b); err != nil {
+			t.Fatalf("read %d bytes at %d: %v", n, off, err)
+		}
+		return b
+	}
+	for _, part := range [][2]int{{0, 10}, {10, 10}, {5000, 100}, {len(data) - 7, 7}} { // "bytes=0-9,10-19,5000-5099,-7"
+		off, n := part[0], part[1]
+		if b := read(off, n); !bytes.Equal(b, data[off:off+n]) || g.whole != nil {
+			t.Errorf("forwards, %d bytes at %d: %q, held whole %v; want %q, not held whole", n, off, b, g.whole != nil, data[off:off+n])
+		}
+	}
+	for _, off := range []int{100, 50, 6000} { // backwards: inflated whole once, then read from it
+		if b := read(off, 20); !bytes.Equal(b, data[off:off+20]) || g.whole == nil || g.zr != nil {
+			t.Errorf("backwards, 20 bytes at %d: %q, held whole %v, decompressor kept %v; want %q from the feed held whole",
+				off, b, g.whole != nil, g.zr != nil, data[off:off+20])
+		}
+	}
+	if n, err := g.Seek(-1, io.SeekStart); err == nil {
+		t.Errorf("Seek to -1: %d, no error", n)
+	}
+	if n, err := g.Seek(int64(len(data))+10, io.SeekStart); err != nil || n != int64(len(data))+10 {
+		t.Errorf("Seek past the end: %d, %v", n, err)
+	} else if n, err := g.Read(buf); n != 0 || err != io.EOF {
+		t.Errorf("read past the end: %d bytes, %v; want io.EOF", n, err)
+	}
+}
+
+// A client that does not take gzip and revalidates a feed held in its
+// gzip form with an ETag it no longer has (every subscribed calendar after
+// a refresh that moves the window) gets the feed inflated into the
+// response as an unconditional request does, not into a copy of the whole
+// feed held for the request; so does a range of it. Measured as the bytes
+// the handler allocates a request, against the feed's size.
+func TestRevalidatedHeldFeedNotCopied(t *testing.T) {
+	data := icsFor("meadowbrook-sun", 8000, "a") // about 1.1 MB, as a fleet feed
+	bundle := &publish.Bundle{Built: testBuilt, Files: []publish.File{file("meadowbrook-sun.ics", "text/calendar; charset=utf-8", data)}}
+	s, _ := newTestServer(t, Options{Build: func(_ context.Context, gzip GzipFunc) (*publish.Bundle, error) { return heldBy(bundle, gzip), nil }})
+	if a := s.snap.Load().files["meadowbrook-sun.ics"]; a == nil || a.data != nil {
+		t.Fatal("the feed should be held in its gzip form alone")
+	}
+	h := s.Handler()
+	for _, tc := range []struct {
+		header, value string
+		code, n       int
+	}{
+		{"If-None-Match", `"0000"`, http.StatusOK, len(data)},
+		{"If-Modified-Since", testBuilt.Add(-time.Hour).UTC().Format(http.TimeFormat), http.StatusOK, len(data)},
+		{"Range", "bytes=-100", http.StatusPartialContent, 100},
+		{"Range", "bytes=0-9,500-509", http.StatusPartialContent, -1},
+	} {
+		req := httptest.NewRequest("GET", "/meadowbrook-sun.ics", nil)
+		req.Header.Set(tc.header, tc.value)
+		serve := func() {
+			w := discardWriter{h: http.Header{}}
+			h.ServeHTTP(&w, req)
+			if w.code != tc.code || (tc.n >= 0 && w.n != tc.n) {
+				t.Fatalf("%s: %s: status %d, %d bytes; want %d, %d", tc.header, tc.value, w.code, w.n, tc.code, tc.n)
+			}
+		}
+		serve() // the decompressor made once
+		const requests = 10
+		var before, after runtime.MemStats
+		runtime.ReadMemStats(&before)
+		for range requests {
+			serve()
+		}
+		runtime.ReadMemStats(&after)
+		if per := (after.TotalAlloc - before.TotalAlloc) / requests; per > uint64(len(data)/10) {
+			t.Errorf("%s: %s: %d bytes allocated a request for a feed of %d; want no copy of the feed (under a tenth of it)",
+				tc.header, tc.value, per, len(data))
+		}
 	}
 }

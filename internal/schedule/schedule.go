@@ -270,12 +270,20 @@ func (s *Scheduler) Stop(ctx context.Context) error {
 	}
 }
 
-// Next returns the next time the function is due, in the schedule's zone.
-// Before Start it is computed from the current time.
+// Next returns the next time the function is due, in the schedule's zone:
+// once started, the time the runner has set for the next run; before Start
+// and after Stop, the expression's next time from now. The two differ for
+// "@every", whose runs follow each other by the interval: its next time
+// from now is always the interval away, never the run that is due.
 func (s *Scheduler) Next() time.Time {
 	s.mu.Lock()
-	sched, loc := s.sched, s.loc
+	sched, loc, id, running := s.sched, s.loc, s.entry, s.started && !s.stopped
 	s.mu.Unlock()
+	if running {
+		if next := s.cron.Entry(id).Next; !next.IsZero() {
+			return next.In(loc)
+		}
+	}
 	return nextOnClocks(sched, loc, time.Now())
 }
 

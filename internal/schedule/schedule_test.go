@@ -344,6 +344,42 @@ func TestReschedule(t *testing.T) {
 	})
 }
 
+// Next gives the run that is due, as /healthz's next_refresh and the log
+// report it: for "@every" the interval after the last run began, not after
+// the moment Next is asked (robfig/cron's ConstantDelaySchedule counts from
+// the run, rounded down to the second).
+func TestNextIsTheRunDue(t *testing.T) {
+	synctest.Test(t, func(t *testing.T) {
+		var runs atomic.Int32
+		s, err := New(func(ctx context.Context) error { runs.Add(1); return nil }, Options{Spec: "@every 1h", Location: time.UTC})
+		if err != nil {
+			t.Fatal(err)
+		}
+		start := time.Now()
+		if got, want := s.Next(), start.Add(time.Hour); !got.Equal(want) {
+			t.Errorf("Next() before Start = %v, want %v", got, want)
+		}
+		s.Start(t.Context())
+		time.Sleep(20 * time.Minute)
+		synctest.Wait()
+		if got, want := s.Next(), start.Add(time.Hour); !got.Equal(want) {
+			t.Errorf("Next() 20 min after Start = %v, want %v (an hour after Start)", got, want)
+		}
+		time.Sleep(70 * time.Minute) // 01:30: one run at 01:00
+		synctest.Wait()
+		if got, want := s.Next(), start.Add(2*time.Hour); !got.Equal(want) || runs.Load() != 1 {
+			t.Errorf("Next() at 01:30 = %v after %d runs, want %v after one", got, runs.Load(), want)
+		}
+		if err := s.Reschedule("45 * * * *", nil); err != nil {
+			t.Fatal(err)
+		}
+		if got, want := s.Next(), start.Add(time.Hour+45*time.Minute); !got.Equal(want) {
+			t.Errorf("Next() at 01:30 after Reschedule(\"45 * * * *\") = %v, want %v", got, want)
+		}
+		s.Stop(t.Context())
+	})
+}
+
 // A nightly time the clocks skip still runs that night, moved by their jump,
 // and a time they show twice runs once. Chile's clocks went from 00:00 to
 // 01:00 on Sunday 15 October 2000 and back from 24:00 to 23:00 on Saturday 11

@@ -78,7 +78,8 @@ var maxDates = int(MaxTime.Sub(MinTime).Hours()/24) + 8
 // (dates read in loc; the clock part is ignored), each running from hour:00
 // local time of the date to hour:00 of the next (or the first instant after,
 // where that wall time is skipped). A date that does not exist in loc is
-// left out. what names the calling function in errors. The loop runs once
+// left out; with hour > 0 the date before it runs to hour:00 of the date
+// after it. what names the calling function in errors. The loop runs once
 // per calendar date and stops with ctx's error when ctx is done.
 func localDays(ctx context.Context, what string, loc *time.Location, first, last time.Time, hour int) ([]dateSpan, error) {
 	if loc == nil {
@@ -106,7 +107,14 @@ func localDays(ctx context.Context, what string, loc *time.Location, first, last
 			}
 		}
 		date := d0.AddDate(0, 0, k)
-		y, m, d := date.AddDate(0, 0, 1).Date()
+		after := date.AddDate(0, 0, 1)
+		if hour != 0 && !dateExists(loc, after) {
+			// the clocks jump over the whole next date: the night runs
+			// to noon of the date after it (Pacific/Apia's night of 29
+			// December 2011 ends at noon on the 31st, not at the jump)
+			after = after.AddDate(0, 0, 1)
+		}
+		y, m, d := after.Date()
 		next := wallStart(loc, y, m, d, hour)
 		if next.After(start) && (hour == 0 || dateExists(loc, date)) {
 			out = append(out, dateSpan{date: date, start: start.In(loc), end: next.In(loc)})

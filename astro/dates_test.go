@@ -89,6 +89,12 @@ func TestLocalDaysSkippedMidnight(t *testing.T) {
 				if y, m, d := s.start.In(loc).Date(); hour == 0 && time.Date(y, m, d, 0, 0, 0, 0, time.UTC) != s.date {
 					t.Errorf("%s: span for %s starts on %d-%02d-%02d", c.zone, s.date.Format(time.DateOnly), y, m, d)
 				}
+				// a night ends at noon of the next date that exists
+				// (zdump -v Pacific/Apia: 2011-12-29 23:59:59 −10 is
+				// followed by 2011-12-31 00:00:00 +14)
+				if h, m, sec := s.end.In(loc).Clock(); hour == 12 && (h != 12 || m != 0 || sec != 0) {
+					t.Errorf("%s: the night of %s ends at %s, not at noon", c.zone, s.date.Format(time.DateOnly), s.end.In(loc))
+				}
 				if i > 0 && !spans[i-1].end.Equal(s.start) {
 					t.Errorf("%s: gap or overlap before %s", c.zone, s.date.Format(time.DateOnly))
 				}

@@ -732,6 +732,9 @@ func summaries(col *collector, w *entryWriter, spec config.KindSpec) error {
 		return err
 	}
 	for i, d := 0, col.first; !d.After(col.last); i, d = i+1, d.AddDate(0, 0, 1) {
+		if sub.gone(d) {
+			continue // the clocks jump over the date: no daylight to sum up
+		}
 		evs, ns := byDate[d], notes[d]
 		byStart(evs)
 		if t := sub.lateEnd(late, d); !t.IsZero() {

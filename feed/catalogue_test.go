@@ -724,11 +724,23 @@ func TestNightDates(t *testing.T) {
 			t.Errorf("DayMark(%s) = %q, want %q", c.t, got, c.want)
 		}
 	}
-	if got := NightOf(date("2027-12-31")); got != "night of 31 December 2027–1 January 2028" {
+	if got := NightOf(date("2027-12-31"), nil); got != "night of 31 December 2027–1 January 2028" {
 		t.Errorf("NightOf: %q", got)
 	}
-	if got := NightOf(date("2027-03-31")); got != "night of 31 March–1 April 2027" {
+	if got := NightOf(date("2027-03-31"), nil); got != "night of 31 March–1 April 2027" {
 		t.Errorf("NightOf: %q", got)
+	}
+	// zdump -v Pacific/Apia: 2011-12-29 23:59:59 −10 is followed by
+	// 2011-12-31 00:00:00 +14, so the night of the 29th ends on the 31st
+	apia, err := time.LoadLocation("Pacific/Apia")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := NightOf(date("2011-12-29"), apia); got != "night of 29–31 December 2011" {
+		t.Errorf("NightOf in Pacific/Apia: %q", got)
+	}
+	if got := NightOf(date("2011-12-28"), apia); got != "night of 28–29 December 2011" {
+		t.Errorf("NightOf in Pacific/Apia: %q", got)
 	}
 }
 

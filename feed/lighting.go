@@ -236,6 +236,13 @@ func (c *collector) lighting(k config.Kind) error {
 		dl := &days[i]
 		needs[i] = dl.length < k.DayLength && !(dl.length == 0 && dl.touched)
 	}
+	// a date the clocks jump over has no day (and no entry): it neither
+	// ends a stretch of dates without lamps nor starts one
+	for _, g := range c.missing() {
+		if i := daysBetween(c.first, g); i >= 0 && i < len(needs) {
+			needs[i] = i > 0 && needs[i-1]
+		}
+	}
 	lim := limitsOf(spec)
 	minLen := lampMinimum(spec.MinDuration.D())
 	lamps := spec.Lamps

@@ -54,7 +54,7 @@ func (c *collector) noteUnderMinimum(spec config.KindSpec, n0 int) {
 // or more on the night of 3–4 May 2027: the longest dark window is 9 min",
 // "No dark sky of 45 min or more on this night: …" and ", under the 45 min
 // minimum".
-func underMinimumText(n Note) (title, row, why string) {
+func underMinimumText(n Note, loc *time.Location) (title, row, why string) {
 	minimum := amount(n.Minimum)
 	longest := hm(n.Longest)
 	if n.Longest.Round(time.Minute) >= n.Minimum {
@@ -64,7 +64,7 @@ func underMinimumText(n Note) (title, row, why string) {
 	var what string
 	switch n.Kind.Name {
 	case "dark-window":
-		title, row = onNight("No dark sky of "+minimum+" or more", n.Date, ": the longest dark window is "+longest)
+		title, row = onNight("No dark sky of "+minimum+" or more", n.Date, loc, ": the longest dark window is "+longest)
 		return title, row, ", under the " + minimum + " minimum"
 	case config.KindSunBand:
 		what = "No span with the " + bandBase(n.Kind.Altitude, n.Kind.High)

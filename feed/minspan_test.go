@@ -122,7 +122,7 @@ func TestSpansUnderMinimumFiltered(t *testing.T) {
 // min 40 s is under the 45 min minimum, "45 min" would not be.
 func TestUnderMinimumTextRounding(t *testing.T) {
 	n := Note{Kind: mustKinds(t, "golden-hour")[0], Date: date("2027-05-12"), Longest: 44*time.Minute + 40*time.Second, Minimum: 45 * time.Minute}
-	title, _, why := underMinimumText(n)
+	title, _, why := underMinimumText(n, time.UTC)
 	if want := "No golden hour of 45 min or more today: the longest is 44 min 40 s"; title != want {
 		t.Errorf("title %q, want %q", title, want)
 	}
@@ -130,7 +130,7 @@ func TestUnderMinimumTextRounding(t *testing.T) {
 		t.Errorf("why %q", why)
 	}
 	n.Kind, n.Longest, n.Minimum = mustKinds(t, "sun-band:-3..12")[0], 100*time.Minute, 2*time.Hour
-	if title, _, _ := underMinimumText(n); title != "No span with the Sun between −3° and +12° of 2 h or more today: the longest is 1 h 40 min" {
+	if title, _, _ := underMinimumText(n, time.UTC); title != "No span with the Sun between −3° and +12° of 2 h or more today: the longest is 1 h 40 min" {
 		t.Errorf("sun band: %q", title)
 	}
 }

@@ -302,9 +302,9 @@ func describeMoon(s *siteInfo, e Event) (title, row, desc string) {
 		length := hm(ToSecond(e.End).Sub(ToSecond(e.Start)))
 		// the night is the row's (RowTitle)
 		row = "Dark sky, " + length
-		title = row + ", " + NightOf(e.Date)
+		title = row + ", " + NightOf(e.Date, loc)
 		fmt.Fprintf(&b, "Dark sky on the %s from %s%s to %s%s (%s).",
-			NightOf(e.Date), at, DayMark(e.Start, e.Date, loc), localClock(e.End, loc), DayMark(e.End, e.Date, loc), length)
+			NightOf(e.Date, loc), at, DayMark(e.Start, e.Date, loc), localClock(e.End, loc), DayMark(e.End, e.Date, loc), length)
 	default:
 		return e.Kind.String(), "", fmt.Sprintf("%s at %s.", e.Kind, at)
 	}
@@ -342,7 +342,7 @@ func describeMoonNote(s *siteInfo, n Note) (title, row, desc string) {
 		case len(s.Skyline) > 0:
 			why = "the Moon is over the skyline and bright all through the astronomical night"
 		}
-		title, row = onNight("No dark sky", n.Date, ": "+why)
+		title, row = onNight("No dark sky", n.Date, s.TimeZone.Location, ": "+why)
 		return title, row, title + "."
 	default:
 		title = n.Kind.String()

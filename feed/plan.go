@@ -202,7 +202,7 @@ func (sky *Sky) allPlanDates(col *collector, parsed []*plan) (planDates, error) 
 		}
 		n := 0
 		for _, d := range ds {
-			if pl.filter.Allows(d.date) {
+			if pl.filter.Allows(d.date) && !col.gone(d.date) { // no plan on a date the clocks jump over
 				ds[n] = d
 				n++
 			}

@@ -45,7 +45,7 @@ func TestRowTitleSaysTimesOnce(t *testing.T) {
 			}
 		case e.Kind == "dark-window" && !e.Facts.Note:
 			windows++
-			if e.Title != row+", "+NightOf(e.Date) {
+			if e.Title != row+", "+NightOf(e.Date, time.UTC) {
 				t.Errorf("dark window %q: row %q, want the title without its night", e.Title, row)
 			}
 		}
@@ -60,7 +60,7 @@ func TestRowTitleSaysTimesOnce(t *testing.T) {
 		}
 	}
 	for _, e := range entries(config.KindSpec{Kind: kinds[1], Offset: config.Duration(-20 * time.Minute)}) {
-		if row := RowTitle(&e); !e.Facts.Note && (e.Title != row+", "+NightOf(e.Date) || !strings.HasPrefix(row, "20 min before dark sky, ")) {
+		if row := RowTitle(&e); !e.Facts.Note && (e.Title != row+", "+NightOf(e.Date, time.UTC) || !strings.HasPrefix(row, "20 min before dark sky, ")) {
 			t.Errorf("dark window 20 min before %q: row %q", e.Title, row)
 		}
 	}

@@ -335,6 +335,79 @@ func midnight(d time.Time, loc *time.Location) time.Time {
 	return astro.DateStart(loc, d.Year(), d.Month(), d.Day())
 }
 
+// missingDates returns the local dates first..last (00:00 UTC) that do not
+// exist in loc, in order: dates the clocks jumped over whole, as
+// Pacific/Apia's did over 30 December 2011 (from 23:59:59 on the 29th,
+// UTC−10, to 00:00 on the 31st, UTC+14). Nearly every zone has none: the
+// clocks jump over a date only by moving the offset forward by a day, so
+// the dates are looked at one by one only when the offset after last is
+// 20 h or more ahead of the one before first (every such jump of the tz
+// database stayed: Apia, Fakaofo, Kiritimati, Kanton, Kwajalein, Manila).
+func missingDates(loc *time.Location, first, last time.Time) []time.Time {
+	_, before := first.Add(-3 * 24 * time.Hour).In(loc).Zone()
+	_, after := last.Add(3 * 24 * time.Hour).In(loc).Zone()
+	if after-before < 20*3600 {
+		return nil
+	}
+	var out []time.Time
+	for d := first; !d.After(last); d = d.AddDate(0, 0, 1) {
+		if !localDate(midnight(d, loc), loc).Equal(d) {
+			out = append(out, d)
+		}
+	}
+	return out
+}
+
+// gone reports whether the local date d (00:00 UTC, first-2..last+1) does
+// not exist in the site's zone (missingDates, found once).
+func (c *collector) gone(d time.Time) bool {
+	for _, g := range c.missing() {
+		if g.Equal(d) {
+			return true
+		}
+	}
+	return false
+}
+
+// missing returns the dates first-2..last+1 that do not exist in the
+// site's zone, found once.
+func (c *collector) missing() []time.Time {
+	if !c.missingKnown {
+		if c.p.Location != nil {
+			c.missingDates = missingDates(c.p.Location, c.first.AddDate(0, 0, -2), c.last.AddDate(0, 0, 1))
+		}
+		c.missingKnown = true
+	}
+	return c.missingDates
+}
+
+// dropMissing takes out of the events from n0 and the notes from m0 those
+// of dates that do not exist in the site's zone: a date the clocks jump
+// over has no sunrise, no polar night, no lamps and no note. The note of a
+// stretch of dates that starts on it (no lamps needed until…) goes to the
+// date after it.
+func (c *collector) dropMissing(n0, m0 int) {
+	if len(c.missing()) == 0 {
+		return
+	}
+	evs := slices.DeleteFunc(c.events[n0:], func(e Event) bool { return c.gone(e.Date) })
+	c.events = c.events[:n0+len(evs)]
+	ns := c.notes[m0:]
+	kept := ns[:0]
+	for _, n := range ns {
+		if c.gone(n.Date) {
+			end, ok := stretchEnd(&n, c.last)
+			next := n.Date.AddDate(0, 0, 1)
+			if !ok || next.After(end) {
+				continue
+			}
+			n.Date = next
+		}
+		kept = append(kept, n)
+	}
+	c.notes = c.notes[:m0+len(kept)]
+}
+
 // Events computes every event of kinds on local dates first..last (inclusive,
 // 00:00 UTC civil dates) and the notes for dates on which a kind has no
 // event. Events are sorted by Start. It stops with ctx's error when ctx is
@@ -881,6 +954,10 @@ type collector struct {
 	noonAlone   map[time.Time]time.Time     // dates' solar noons searched one by one (solarNoon)
 	zc          *zoneCache                  // see zone
 	si          *siteInfo                   // see siteInfo
+	// missingDates are the dates first-2..last+1 that do not exist in
+	// the site's zone, once missingKnown (see missing)
+	missingDates []time.Time
+	missingKnown bool
 }
 
 // siteInfo returns the text of the collector's site s, made once for the
@@ -959,6 +1036,7 @@ func (c *collector) add(k config.Kind) error {
 	if noteSilentKinds[k.Name] {
 		c.noteSilent(k, n0, m0)
 	}
+	c.dropMissing(n0, m0)
 	return nil
 }
 
@@ -1708,6 +1786,13 @@ func (c *collector) dayLengths() error {
 	if err := c.dropLongTails(l, alt); err != nil {
 		return err
 	}
+	// a date the clocks jump over has no day: the date after it compares
+	// its day with the one before it
+	for _, g := range c.missing() {
+		if i := daysBetween(c.first.AddDate(0, 0, -2), g); i > 0 && i < len(l) {
+			l[i] = l[i-1]
+		}
+	}
 	c.lengthBefore, c.lengths = l[0], l[1:]
 	return nil
 }
@@ -2224,6 +2309,9 @@ func (c *collector) notReached(k config.Kind) Note {
 	}
 	for i := 1; i < len(c.lengths); i++ {
 		l := c.lengths[i]
+		if len(c.missing()) > 0 && c.gone(c.first.AddDate(0, 0, i-1)) {
+			continue // no day: its length is the date before's (dayLengths)
+		}
 		if n.ExtremeDate.IsZero() || (!above && l > n.DayLength) || (above && l < n.DayLength) {
 			n.DayLength, n.ExtremeDate = l, c.first.AddDate(0, 0, i-1)
 		}

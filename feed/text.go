@@ -287,11 +287,16 @@ func appendDate(b []byte, t time.Time) []byte {
 }
 
 // NightOf names the night that begins on the evening of the local date d
-// (00:00 UTC): "night of 3–4 March", "night of 31 March–1 April". A night
-// belongs to the date of its evening and runs from local noon to local noon
-// (astro.DarkWindows).
-func NightOf(d time.Time) string {
+// (00:00 UTC) in loc: "night of 3–4 March", "night of 31 March–1 April". A
+// night belongs to the date of its evening and runs from local noon to local
+// noon of the next date that exists in loc (astro.DarkWindows): in
+// Pacific/Apia, whose clocks jumped over 30 December 2011, the "night of
+// 29–31 December 2011". A nil loc is UTC.
+func NightOf(d time.Time, loc *time.Location) string {
 	n := d.AddDate(0, 0, 1)
+	if loc != nil && !localDate(midnight(n, loc), loc).Equal(n) {
+		n = n.AddDate(0, 0, 1) // the clocks jump over the whole date
+	}
 	switch {
 	case n.Year() != d.Year():
 		return "night of " + d.Format("2 January 2006") + "–" + n.Format("2 January 2006")
@@ -1431,7 +1436,7 @@ func describeNote(s *siteInfo, n Note) (title, row, desc string) {
 	}
 	if n.Longest > 0 {
 		var why string
-		title, row, why = underMinimumText(n)
+		title, row, why = underMinimumText(n, s.TimeZone.Location)
 		return title, row, title + why + "."
 	}
 	if n.State == astro.Crosses && !n.Kind.IsMoon() {
@@ -1531,8 +1536,8 @@ func onDate(head, when, tail string) (title, row string) {
 // onNight is onDate for a note of a night: "on the night of 5–6 December
 // 2026", the night that begins on the evening of d, is "on this night" in
 // a row.
-func onNight(head string, d time.Time, tail string) (title, row string) {
-	return head + " on the " + NightOf(d) + tail, head + " on this night" + tail
+func onNight(head string, d time.Time, loc *time.Location, tail string) (title, row string) {
+	return head + " on the " + NightOf(d, loc) + tail, head + " on this night" + tail
 }
 
 // NotReachedText says that a photoperiod threshold is not crossed in a

@@ -350,14 +350,14 @@ func toJSONNote(n feed.Note) jsonNote {
 	return j
 }
 
-// noteText is a note's details in the table.
-func noteText(n *feed.Note) string {
+// noteText is a note's details in the table, at a site in loc.
+func noteText(n *feed.Note, loc *time.Location) string {
 	if n.Kind.Name == "dark-window" {
 		why := "the Sun stays less than 18° below the horizon"
 		if n.State == astro.AlwaysBelow {
 			why = "the Moon is up and bright"
 		}
-		return "no dark sky on the " + feed.NightOf(n.Date) + ": " + why
+		return "no dark sky on the " + feed.NightOf(n.Date, loc) + ": " + why
 	}
 	if n.Kind.Name == "photoperiod" {
 		return feed.NotReachedText(*n)

@@ -911,7 +911,7 @@ func (t *tableSink) prepare(ch *feed.Chunk, out *chunkOut) error {
 	p.rows, p.widths = p.rows[:0], [3]int{}
 	for _, r := range mergeRows(ch.Events, ch.Notes) {
 		if r.note != nil {
-			p.rows = append(p.rows, [4]string{r.note.Date.Format("2006-01-02 Mon"), "-", r.note.Kind.String(), noteText(r.note)})
+			p.rows = append(p.rows, [4]string{r.note.Date.Format("2006-01-02 Mon"), "-", r.note.Kind.String(), noteText(r.note, t.loc)})
 			continue
 		}
 		e := r.event

@@ -1,0 +1,128 @@
+package feed
+
+import (
+	"context"
+	"math"
+	"strings"
+	"testing"
+	"time"
+
+	"heliocal/config"
+)
+
+// TestDateTheClocksSkip: Pacific/Apia's clocks went from 23:59:59 on 29
+// December 2011 (UTC−10) to 00:00 on 31 December (UTC+14) (zdump -v
+// Pacific/Apia), so 30 December 2011 has no instant there. A feed lists
+// nothing on that date (no "polar night", no lamps, no second plan at the
+// 29th's time); every other date keeps one sunrise, one daily summary and
+// one entry of an every-day plan; the 31st's day is compared with the 29th's;
+// the dark sky of the night of the 29th, which runs to noon on the 31st, is
+// that night's. PyEphem 4.1.4 (Sun's upper limb at −0:34, pressure 0, at
+// 13.86° S, 171.77° W): sunrise 2011-12-30 17:01:32 UT (07:01 on the 31st,
+// UTC+14), day 29 December 12 h 56 min 22 s, 31 December 12 h 56 min 13 s
+// (−9 s).
+func TestDateTheClocksSkip(t *testing.T) {
+	s := site(t, "vailima", -13.86, -171.77, "Pacific/Apia")
+	loc := s.TimeZone.Location
+	if _, off := time.Date(2011, 12, 31, 0, 0, 0, 0, loc).Zone(); off != 14*3600 {
+		t.Fatalf("zone data: offset %d on 31 December 2011", off)
+	}
+	specs := []config.KindSpec{}
+	for _, k := range mustKinds(t, "sunrise", "sunset", "civil-dusk", "golden-hour", "daily-summary", "dark-window", "lighting:13h", "moon-phases") {
+		specs = append(specs, config.KindSpec{Kind: k})
+	}
+	specs[6].Lamps = "both"
+	f := &config.Feed{ID: "apia", Site: s.ID, Kinds: specs, Plans: []config.Plan{
+		{Title: "Morning round", Date: "every day", Start: "06:30", For: config.Duration(time.Hour)},
+	}}
+	first, last := date("2011-12-28"), date("2012-01-01")
+	sk, err := NewSky(first.AddDate(0, 0, -PlanMargin), last.AddDate(0, 0, PlanMargin))
+	if err != nil {
+		t.Fatal(err)
+	}
+	cal, err := sk.Calendar(context.Background(), s, f, first, last, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	count := map[string]int{}
+	var night29 []Entry
+	for _, e := range cal.Entries {
+		day := e.Date.Format(time.DateOnly)
+		if day == "2011-12-30" {
+			t.Errorf("entry on 30 December 2011, a date Apia's clocks skip: %s %q", e.Kind, e.Title)
+		}
+		count[day+" "+e.Kind]++
+		if e.Kind == "daily-summary" && day == "2011-12-31" {
+			if want := -9 * time.Second; (e.Facts.DayChange - want).Abs() > 3*time.Second {
+				t.Errorf("31 December: day change %s, want about %s (from the 29th)", e.Facts.DayChange, want)
+			}
+		}
+		if e.Kind == "sunrise" && day == "2011-12-31" {
+			want := time.Date(2011, 12, 30, 17, 1, 32, 0, time.UTC)
+			if d := e.Start.Sub(want); math.Abs(d.Seconds()) > 5 {
+				t.Errorf("sunrise of 31 December at %s, want %s", e.Start, want)
+			}
+		}
+		if e.Kind == "dark-window" && day == "2011-12-29" {
+			night29 = append(night29, e)
+		}
+	}
+	for _, day := range []string{"2011-12-28", "2011-12-29", "2011-12-31", "2012-01-01"} {
+		for _, k := range []string{"sunrise", "daily-summary", "plan"} {
+			if n := count[day+" "+k]; n != 1 {
+				t.Errorf("%s: %d %s entries, want 1", day, n, k)
+			}
+		}
+	}
+	// the night of the 29th runs from its noon (UTC−10) to noon on the
+	// 31st (UTC+14): its dark sky ends in the morning of the 31st (the
+	// Moon sets at 23:59:57 UTC−10, Sun at −18° at 05:42 UTC+14)
+	if len(night29) == 0 {
+		t.Fatal("no dark-window entry for the night of 29 December")
+	}
+	for _, e := range night29 {
+		if e.Facts.Note {
+			t.Errorf("night of 29 December: note %q beside its dark sky", e.Title)
+			continue
+		}
+		if !strings.Contains(e.Title, "night of 29–31 December 2011") {
+			t.Errorf("title %q, want the night of 29–31 December 2011", e.Title)
+		}
+		if got := localDate(e.End, loc); got != date("2011-12-31") {
+			t.Errorf("dark sky of the night of the 29th ends on %s (%s)", got.Format(time.DateOnly), e.Title)
+		}
+	}
+}
+
+// TestStretchFromDateTheClocksSkip: a stretch of dates without lamps is
+// not broken by Pacific/Apia's missing 30 December 2011, and a listing
+// that starts on that date has its stretch notes on the 31st (the natural
+// day at 13.86° S is about 12 h 56 min all through: PyEphem, as above).
+func TestStretchFromDateTheClocksSkip(t *testing.T) {
+	s := site(t, "vailima", -13.86, -171.77, "Pacific/Apia")
+	p := PlaceOf(s)
+	sk := sky(t, "2011-12-10", "2012-01-10")
+	for _, first := range []string{"2011-12-20", "2011-12-30"} {
+		evs, notes, err := sk.Events(context.Background(), p, mustKinds(t, "lighting:12h", "photoperiod:13h"), date(first), date("2012-01-03"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(evs) != 0 {
+			t.Errorf("from %s: %d events, want none", first, len(evs))
+		}
+		var got []string
+		for _, n := range notes {
+			got = append(got, n.Kind.String()+" "+n.Date.Format(time.DateOnly))
+			if n.ExtremeDate.Equal(date("2011-12-30")) {
+				t.Errorf("from %s: %s names 30 December as its longest day", first, n.Kind)
+			}
+		}
+		want := first
+		if first == "2011-12-30" {
+			want = "2011-12-31"
+		}
+		if strings.Join(got, ", ") != "lighting:12h "+want+", photoperiod:13h "+want {
+			t.Errorf("from %s: notes %v, want one of each kind on %s", first, got, want)
+		}
+	}
+}

@@ -686,34 +686,52 @@ func days(cal *feed.Calendar, q AdhocQuery) []previewDay {
 // 23:00" (America/Santiago, 3 April 2027). A change belongs to the date
 // the clocks show after it, so a skipped midnight is said on the date that
 // then starts at 01:00; the time it is read at is the clock's before it,
-// 24:00 for the end of the row's own date.
+// 24:00 for the end of the row's own date. A change that jumps over whole
+// dates names the dates on both sides ("24:00 on Thu 29 Dec becomes 00:00
+// on Sat 31 Dec", Pacific/Apia in 2011), and the row of a date it jumps
+// over says that the date is skipped.
 func clockChange(d time.Time, loc *time.Location) string {
 	row := d.Format(time.DateOnly)
-	y, m, day := d.Date()
-	noon := time.Date(y, m, day, 12, 0, 0, 0, loc)
 	var said []string
-	for t, to := noon.AddDate(0, 0, -1), noon.AddDate(0, 0, 1); ; {
-		_, tr := t.ZoneBounds()
+	// from two days before the date to three after it, as instants: the
+	// date's noon in loc may not exist (the clocks skip the whole date)
+	for t, to := d.Add(-48*time.Hour), d.Add(72*time.Hour); ; {
+		_, tr := t.In(loc).ZoneBounds()
 		if tr.IsZero() || !tr.Before(to) {
 			break
 		}
 		t = tr
 		_, before := tr.Add(-time.Second).Zone()
 		_, after := tr.Zone()
-		if before == after || tr.In(loc).Format(time.DateOnly) != row {
-			continue // a change of the zone's name alone, or of another date
+		if before == after {
+			continue // a change of the zone's name alone
 		}
-		old := tr.In(time.FixedZone("", before))
-		was := old.Format("15:04")
-		if was == "00:00" && old.Format(time.DateOnly) != row {
-			was = "24:00"
+		old, now := tr.In(time.FixedZone("", before)), tr.In(loc)
+		was, wasDate := old.Format("15:04"), old
+		if was == "00:00" && old.Format(time.DateOnly) != now.Format(time.DateOnly) {
+			was, wasDate = "24:00", old.AddDate(0, 0, -1) // the end of the date before
+		}
+		jumpsDates := wasDate.Format(time.DateOnly) < row && row < now.Format(time.DateOnly)
+		if now.Format(time.DateOnly) != row && !jumpsDates {
+			continue // a change of another date
 		}
 		// summer time is the clock's after a change forward, before one back
-		by, forward, summer := time.Duration(after-before)*time.Second, after > before, tr.In(loc).IsDST()
+		by, forward, summer := time.Duration(after-before)*time.Second, after > before, now.IsDST()
 		if !forward {
 			by, summer = -by, tr.Add(-time.Second).In(loc).IsDST()
 		}
-		said = append(said, "Clocks "+feed.ClocksGo(forward, summer, by)+": "+was+" becomes "+tr.In(loc).Format("15:04"))
+		becomes := now.Format("15:04")
+		y, m, day := now.Date() // the date before now's, as a civil date: it may not exist in loc
+		if d := wasDate.Format(time.DateOnly); d != row && d != time.Date(y, m, day-1, 0, 0, 0, 0, time.UTC).Format(time.DateOnly) {
+			// the clocks jump over at least one whole date
+			was += " on " + wasDate.Format("Mon 2 Jan")
+			becomes += " on " + now.Format("Mon 2 Jan")
+		}
+		if jumpsDates {
+			said = append(said, "This date is skipped: the clocks "+feed.ClocksGo(forward, summer, by)+", "+was+" becomes "+becomes)
+			continue
+		}
+		said = append(said, "Clocks "+feed.ClocksGo(forward, summer, by)+": "+was+" becomes "+becomes)
 	}
 	return strings.Join(said, "; ")
 }

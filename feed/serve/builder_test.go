@@ -357,6 +357,12 @@ func TestPreviewClockChange(t *testing.T) {
 		{"Australia/Sydney", "2027-04-03", []string{"", "Clocks go back from summer time by 1 h: 03:00 becomes 02:00", ""}},
 		{"Australia/Sydney", "2027-10-02", []string{"", "Clocks go forward for summer time by 1 h: 02:00 becomes 03:00", ""}},
 		{"UTC", "2027-03-13", []string{"", "", ""}},
+		// zdump -v Pacific/Apia: 23:59:59 -10 on 29 December 2011, then
+		// 00:00:00 +14 on the 31st (isdst=1 on both sides); the 30th has
+		// no instant
+		{"Pacific/Apia", "2011-12-29", []string{"",
+			"This date is skipped: the clocks go forward for summer time by 24 h, 24:00 on Thu 29 Dec becomes 00:00 on Sat 31 Dec",
+			"Clocks go forward for summer time by 24 h: 24:00 on Thu 29 Dec becomes 00:00 on Sat 31 Dec", ""}},
 	} {
 		loc, err := time.LoadLocation(tc.zone)
 		if err != nil {

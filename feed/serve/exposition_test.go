@@ -101,6 +101,20 @@ func TestMetricsExposition(t *testing.T) {
 		}
 		return l
 	}
+	// every value of the refreshes' labels is named where docs/serving.md
+	// gives the metric
+	refreshes := regexp.MustCompile("`heliocal_refreshes_total\\{trigger,result\\}` \\(([^)]*)\\)").FindSubmatch(doc)
+	if refreshes == nil {
+		t.Error("docs/serving.md does not say what the labels of heliocal_refreshes_total are")
+	} else {
+		for _, m := range fams["heliocal_refreshes_total"].GetMetric() {
+			for name, value := range labels(m) {
+				if !bytes.Contains(refreshes[1], []byte("`"+value+"`")) {
+					t.Errorf("docs/serving.md does not name the %s %q of heliocal_refreshes_total", name, value)
+				}
+			}
+		}
+	}
 	found := false
 	for _, m := range fams["heliocal_http_requests_total"].GetMetric() {
 		if l := labels(m); l["route"] == "feed" && l["code"] == "200" {

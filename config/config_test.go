@@ -1012,3 +1012,22 @@ func TestWindowsDeviceIDs(t *testing.T) {
 		}
 	}
 }
+
+// TestShortKeys: a site written with the command line's short names (--lat,
+// --lon, --elev, --tz) is told each key's name, which the misspelling
+// search does not find ("lat" is too far from "latitude").
+func TestShortKeys(t *testing.T) {
+	_, err := loadTestdata(t, "short-keys.yaml")
+	if err == nil {
+		t.Fatal("no error")
+	}
+	hints := map[string]string{}
+	for _, p := range problemsOf(t, err) {
+		hints[p.Path] = p.Hint
+	}
+	for short, key := range map[string]string{"lat": "latitude", "lon": "longitude", "elev": "elevation", "tz": "timezone"} {
+		if got, want := hints["sites[0]."+short], `did you mean "`+key+`"?`; got != want {
+			t.Errorf("sites[0].%s: hint %q, want %q", short, got, want)
+		}
+	}
+}

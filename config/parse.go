@@ -1707,7 +1707,11 @@ func problemFor(path string, err error) []FieldError {
 			}
 			fe := FieldError{Path: p, Value: key, Msg: "unknown key"}
 			if len(keys) > 0 {
-				fe.Hint = nearValue(key, keys, keyElsewhere(key)+"known keys here: "+strings.Join(keys, ", "))
+				if long := shortKeys[strings.ToLower(key)]; slices.Contains(keys, long) {
+					fe.Hint = didYouMean(long)
+				} else {
+					fe.Hint = nearValue(key, keys, keyElsewhere(key)+"known keys here: "+strings.Join(keys, ", "))
+				}
 			}
 			out = append(out, fe)
 		}
@@ -1732,6 +1736,16 @@ func listHint(format, path string) string {
 
 // listIndex is the index of a list in a decoder path: "[0]".
 var listIndex = sync.OnceValue(func() *regexp.Regexp { return regexp.MustCompile(`\[[0-9]+\]`) })
+
+// shortKeys are the short names people write for a site's keys, from the
+// command line's flags (--lat, --lon, --elev, --tz) and other tools, which
+// are too far from the key for closest to take them for it: "lat" is three
+// letters of "latitude"'s eight.
+var shortKeys = map[string]string{
+	"lat": "latitude", "lon": "longitude", "lng": "longitude", "long": "longitude",
+	"elev": "elevation", "alt": "elevation", "altitude": "elevation", "height": "elevation",
+	"tz": "timezone", "zone": "timezone", "time_zone": "timezone",
+}
 
 // keySections are the places a key is written, with the words that name
 // them in keyElsewhere.

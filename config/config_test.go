@@ -1031,3 +1031,22 @@ func TestShortKeys(t *testing.T) {
 		}
 	}
 }
+
+// TestProblemsInLineOrder: problems named file:line: come in the order of
+// their lines, as a compiler lists them (by field, "elev" sorted before
+// "lat" though written after it).
+func TestProblemsInLineOrder(t *testing.T) {
+	_, err := loadTestdata(t, "short-keys.yaml")
+	if err == nil {
+		t.Fatal("no error")
+	}
+	ps := problemsOf(t, err)
+	for i := 1; i < len(ps); i++ {
+		if ps[i].Line < ps[i-1].Line {
+			t.Errorf("%s (line %d) after %s (line %d):\n%v", ps[i].Path, ps[i].Line, ps[i-1].Path, ps[i-1].Line, err)
+		}
+	}
+	if len(ps) < 6 {
+		t.Errorf("%d problems, want 6:\n%v", len(ps), err)
+	}
+}

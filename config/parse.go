@@ -2,6 +2,7 @@ package config
 
 import (
 	"bytes"
+	"cmp"
 	_ "embed"
 	"encoding/binary"
 	"encoding/json"
@@ -265,7 +266,12 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		}
 	}
 	if len(problems) > 0 {
-		return nil, newValidationError(problems)
+		ve := newValidationError(problems)
+		// named file:line: as a compiler names them, they come in the
+		// file's order; those of no line (set by the environment, a
+		// duplicate naming its own lines) before them
+		slices.SortStableFunc(ve.Problems, func(a, b FieldError) int { return cmp.Compare(a.Line, b.Line) })
+		return nil, ve
 	}
 	return c, nil
 }

@@ -469,8 +469,9 @@ func (w *Writer) keep(name string) {
 }
 
 // copyPrev copies the file final to a new file prefix + digits, with
-// FileMode and final's modification time (a file put back from it looks
-// to a web server as it did), flushed to disk, and returns its name.
+// final's permission bits and modification time (a file put back from it
+// looks to a web server as it did; its owner is this user's, as no copy
+// can keep another user's), flushed to disk, and returns its name.
 // Nothing is left behind on error.
 func copyPrev(final, prefix string) (_ string, err error) {
 	src, err := os.Open(final)
@@ -484,7 +485,7 @@ func copyPrev(final, prefix string) (_ string, err error) {
 	}
 	var dst *os.File
 	prev, err := freshName(prefix, "", 100, func(name string) (err error) {
-		dst, err = openNew(name, FileMode)
+		dst, err = openNew(name, fi.Mode().Perm())
 		return err
 	})
 	if err != nil {
@@ -497,7 +498,7 @@ func copyPrev(final, prefix string) (_ string, err error) {
 	}()
 	_, err = io.Copy(dst, src)
 	if err == nil {
-		err = dst.Chmod(FileMode)
+		err = dst.Chmod(fi.Mode().Perm()) // the umask may have taken bits off openNew's
 	}
 	if err == nil {
 		err = dst.Sync()

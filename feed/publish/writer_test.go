@@ -610,18 +610,24 @@ func TestFailedCommitWithoutLinksSaysWhatStaysNew(t *testing.T) {
 // Linux distributions, refuses with EPERM), a commit that fails at its last
 // rename still puts back every file it replaced, from copies: the
 // directory holds the publication before it, byte for byte and with the
-// modification times a web server reports, and no file of the commit's.
+// modification times a web server reports and the permissions the files
+// had (a feeds.json made 0640 is 0640 again), and no file of the
+// commit's.
 func TestFailedCommitWithoutLinksPutsBackCopies(t *testing.T) {
 	dir := t.TempDir()
 	publishTo(t, dir, "", testOptions())
 	old := snapshot(t, dir)
+	if err := os.Chmod(filepath.Join(dir, FeedsJSONName), 0o640); err != nil {
+		t.Fatal(err)
+	}
 	oldTimes := map[string]time.Time{}
+	oldModes := map[string]fs.FileMode{}
 	for name := range old {
 		fi, err := os.Stat(filepath.Join(dir, name))
 		if err != nil {
 			t.Fatal(err)
 		}
-		oldTimes[name] = fi.ModTime()
+		oldTimes[name], oldModes[name] = fi.ModTime(), fi.Mode()
 	}
 	links := 0
 	w := &Writer{Dir: dir, link: func(oldname, newname string) error {
@@ -645,8 +651,16 @@ func TestFailedCommitWithoutLinksPutsBackCopies(t *testing.T) {
 		t.Errorf("the published files changed: %v, were %v", keys(now), keys(old))
 	}
 	for name, was := range oldTimes {
-		if fi, err := os.Stat(filepath.Join(dir, name)); err != nil || !fi.ModTime().Equal(was) {
-			t.Errorf("%s: modified %v (%v), was %v", name, fi.ModTime(), err, was)
+		fi, err := os.Stat(filepath.Join(dir, name))
+		if err != nil {
+			t.Errorf("%s: %v", name, err)
+			continue
+		}
+		if !fi.ModTime().Equal(was) {
+			t.Errorf("%s: modified %v, was %v", name, fi.ModTime(), was)
+		}
+		if fi.Mode() != oldModes[name] {
+			t.Errorf("%s: mode %v, was %v", name, fi.Mode(), oldModes[name])
 		}
 	}
 	if tmp := tempNames(t, dir); len(tmp) > 0 {

@@ -235,13 +235,20 @@ type site struct {
 
 // newSite prepares an observer; o must be valid.
 func newSite(o Observer) *site {
+	st := siteOf(o)
+	return &st
+}
+
+// siteOf is newSite's site as a value, for a caller that keeps it on its
+// stack (SunFrom and MoonFrom allocate nothing).
+func siteOf(o Observer) site {
 	phi := o.Latitude * deg2rad
 	ba := 1 - earthFlattening
 	u := math.Atan(ba * math.Tan(phi))
 	su, cu := math.Sincos(u)
 	sp, cp := math.Sincos(phi)
 	hr := o.Elevation / (earthRadiusKm * 1000)
-	st := &site{lat: phi, lon: o.Longitude * deg2rad, sinLat: sp, cosLat: cp, latDegrees: o.Latitude}
+	st := site{lat: phi, lon: o.Longitude * deg2rad, sinLat: sp, cosLat: cp, latDegrees: o.Latitude}
 	st.rhoSin = ba*su + hr*sp
 	st.rhoCos = cu + hr*cp
 	if math.Abs(o.Latitude) == 90 {

@@ -23,14 +23,13 @@ type topo struct {
 // eqEq is the equation of the equinoxes Δψ cos ε at e (radians), which the
 // body's apparent position has already computed.
 func topocentric(o Observer, e Epoch, ra, dec, dist, eqEq float64) topo {
-	phi := o.Latitude * deg2rad
-	ba := 1 - earthFlattening
-	u := math.Atan(ba * math.Tan(phi))
-	hr := o.Elevation / (earthRadiusKm * 1000)
-	rhoSin := ba*math.Sin(u) + hr*math.Sin(phi)
-	rhoCos := math.Cos(u) + hr*math.Cos(phi)
-	theta := norm360(meanSiderealRaw(e.JDUT1)+eqEq*rad2deg) * deg2rad // ApparentSiderealTime
-	H := theta + o.Longitude*deg2rad - ra
+	st := siteOf(o)
+	rhoSin, rhoCos := st.rhoSin, st.rhoCos
+	// the apparent sidereal time reduced to [0°, 360°) before the hour
+	// angle, as MoonFrom has always taken it (ApparentSiderealTime):
+	// greenwichHourAngle, which does not reduce it, moves the last bits
+	theta := norm360(meanSiderealRaw(e.JDUT1)+eqEq*rad2deg) * deg2rad
+	H := theta + st.lon - ra
 	sinPi := earthRadiusKm / dist
 	sH, cH := math.Sincos(H)
 	sd, cd := math.Sincos(dec)
@@ -39,7 +38,7 @@ func topocentric(o Observer, e Epoch, ra, dec, dist, eqEq float64) topo {
 	tdec := math.Atan2((sd-rhoSin*sinPi)*math.Cos(dRA), den)
 	Hp := H - dRA
 	sHp, cHp := math.Sincos(Hp)
-	sp, cp := math.Sincos(phi)
+	sp, cp := st.sinLat, st.cosLat
 	sdp, cdp := math.Sincos(tdec)
 	alt := math.Asin(sp*sdp + cp*cdp*cHp)
 	az := math.Atan2(sHp, cHp*sp-sdp/cdp*cp) + math.Pi // Meeus 13.5 counts from the south

@@ -135,8 +135,7 @@ func (o Observer) RiseSetAltitude() float64 {
 		}
 		return h - 1.76/60*math.Sqrt(o.Elevation)
 	}
-	h := max(o.Horizon, -1)
-	r := 1 / math.Tan((h+7.31/(h+4.4))*deg2rad) // arcminutes
+	r, _ := bennett(max(o.Horizon, bennettMinAltitude)) // arcminutes
 	return o.Horizon - r*f/60 - 16.0/60
 }
 

@@ -66,15 +66,14 @@ const bennettMinAltitude = -1.0
 // R = 1′/tan(a + 7.31/(a + 4.4)) (Meeus, Astronomical Algorithms 2nd ed.,
 // ch. 16), and its derivative dR/da (arcminutes per degree). The formula
 // turns negative above 89.92° (−0.08″ at the zenith); it is taken as 0
-// there.
+// there. Observer.RiseSetAltitude takes R from it for a raised Horizon.
 func bennett(a float64) (r, dr float64) {
 	b := a + 4.4
-	s, c := math.Sincos((a + 7.31/b) * deg2rad)
-	r = c / s
+	r = 1 / math.Tan((a+7.31/b)*deg2rad)
 	if r <= 0 {
 		return 0, 0
 	}
-	return r, -(1 - 7.31/(b*b)) * deg2rad / (s * s)
+	return r, -(1 - 7.31/(b*b)) * deg2rad * (1 + r*r) // d cot x = −(1 + cot² x) dx
 }
 
 // refractedAltitude returns the apparent altitude (degrees) of a body at

@@ -90,7 +90,11 @@ func modSince(prev *asset, sum string, mod time.Time) time.Time {
 // heldAsset is the asset of a bundle's feed that the build kept in its
 // gzip form alone (publish.File.Gzip, made by a GzipFunc), modified at mod
 // unless prev holds the same bytes (see newAsset). Its sum is the one the
-// bundle states: the bytes are not at hand to hash again.
+// bundle states: the bytes are not at hand to hash again, and publish.Render
+// stated the sum of the bytes it gave the GzipFunc. What the gzip form says
+// of itself is checked: its header, and the length of its bytes its trailer
+// ends with (RFC 1952, ISIZE: modulo 2³²), which a request inflating it
+// relies on.
 func heldAsset(f *publish.File, mod time.Time, prev *asset) (*asset, error) {
 	sum := strings.ToLower(f.Checksum)
 	if len(sum) != 2*sha256.Size {
@@ -98,6 +102,9 @@ func heldAsset(f *publish.File, mod time.Time, prev *asset) (*asset, error) {
 	}
 	if f.Size <= 0 {
 		return nil, fmt.Errorf("serve: bundle file %q: held in its gzip form with size %d", f.Name, f.Size)
+	}
+	if n := len(f.Gzip); n < 18 || f.Gzip[0] != 0x1f || f.Gzip[1] != 0x8b || binary.LittleEndian.Uint32(f.Gzip[n-4:]) != uint32(f.Size) {
+		return nil, fmt.Errorf("serve: bundle file %q: held in a gzip form (%d bytes) that is not of its size, %d bytes", f.Name, len(f.Gzip), f.Size)
 	}
 	return assetOf(f.Name, f.ContentType, nil, f.Size, modSince(prev, sum, mod), sum, f.Gzip), nil
 }

@@ -304,11 +304,17 @@ func TestFailedRefreshKeepsFeeds(t *testing.T) {
 	bad.Files[3].Checksum = strings.Repeat("0", 64) // a corrupt bundle is a failed build too
 	unsummed := heldBy(testBundle("b"), feedGzip(nil))
 	unsummed.Files[3].Checksum = "" // a feed held in its gzip form needs its sum: the bytes are not at hand
+	missized := heldBy(testBundle("b"), feedGzip(nil))
+	missized.Files[3].Size-- // its gzip form's trailer (RFC 1952, ISIZE) says one byte more
+	notGzip := heldBy(testBundle("b"), feedGzip(nil))
+	notGzip.Files[3].Gzip = []byte(strings.Repeat("BEGIN:VCALENDAR\r\n", 4)) // no gzip header
 	for _, fail := range []func(){
 		func() { b.set(nil, errors.New("config: feeds[1].site: unknown site \"nowhere\"")) },
 		func() { b.set(nil, nil) },
 		func() { b.setWhole(bad) },
 		func() { b.setWhole(unsummed) },
+		func() { b.setWhole(missized) },
+		func() { b.setWhole(notGzip) },
 		func() {
 			dup := testBundle("b")
 			dup.Files = append(dup.Files, dup.Files[0])

@@ -91,7 +91,9 @@ func quoteValue(v string) string {
 }
 
 // ValidationError lists every problem found in a configuration, one per
-// line, ordered by path (service, sites, feeds).
+// line, ordered by path (service, sites, feeds); a configuration's read
+// from a file, by the lines its problems are written on (those of no line
+// first, each in the order of paths), as a compiler lists them.
 type ValidationError struct {
 	Source   string // file name, prefixed to each line when set, with the problem's line when known
 	Problems []FieldError

@@ -63,14 +63,22 @@ func hdr(v string) []string { return []string{v} } // len 1, cap 1
 func newAsset(name, contentType string, data []byte, mod time.Time, prev *asset) *asset {
 	sum := sha256.Sum256(data)
 	hexSum := hex.EncodeToString(sum[:])
-	var gz []byte
-	switch {
-	case prev != nil && prev.sum == hexSum:
-		gz = prev.gz
-	case len(data) >= minGzip:
-		gz = gzipBytes(data)
-	}
+	gz := gzipFor(data, hexSum, prev)
 	return assetOf(name, contentType, data, len(data), modSince(prev, hexSum, mod), hexSum, gz)
+}
+
+// gzipFor is the gzip form of data, whose SHA-256 is sum, at the default
+// level: prev's form (prev nil: none) when prev holds the same bytes, so
+// that bytes served again are compressed once; nil when gzip would not
+// help.
+func gzipFor(data []byte, sum string, prev *asset) []byte {
+	switch {
+	case prev != nil && strings.EqualFold(prev.sum, sum):
+		return prev.gz
+	case len(data) >= minGzip:
+		return gzipBytes(data)
+	}
+	return nil
 }
 
 // modSince is the modification time of bytes of SHA-256 sum that are
@@ -110,23 +118,18 @@ func heldAsset(f *publish.File, mod time.Time, prev *asset) (*asset, error) {
 }
 
 // feedGzip is publish.RenderOptions.Gzip for a build that replaces prev
-// (nil: none): the gzip form of a feed's bytes, at the default level, or
-// prev's form of the same bytes, compressed once; nil when gzip would not
-// help. It keeps a build from holding every feed's bytes at once: for the
-// 1,000 feeds of 1.1 MB each of tools/fleet that took 1.1 GB, held until
-// the snapshot was made, and held again beside the served snapshot during
-// a reload.
+// (nil: none): a feed's gzipFor, prev's form when prev serves the same
+// bytes under the feed's name. It keeps a build from holding every feed's
+// bytes at once: for the 1,000 feeds of 1.1 MB each of tools/fleet that
+// took 1.1 GB, held until the snapshot was made, and held again beside
+// the served snapshot during a reload.
 func feedGzip(prev *snapshot) GzipFunc {
 	return func(f *publish.File) []byte {
+		var p *asset
 		if prev != nil {
-			if p := prev.files[f.Name]; p != nil && strings.EqualFold(p.sum, f.Checksum) {
-				return p.gz
-			}
+			p = prev.files[f.Name]
 		}
-		if len(f.Data) < minGzip {
-			return nil
-		}
-		return gzipBytes(f.Data)
+		return gzipFor(f.Data, f.Checksum, p)
 	}
 }
 

@@ -1,6 +1,7 @@
 package serve
 
 import (
+	"context"
 	"math"
 	"os"
 	"reflect"
@@ -9,6 +10,11 @@ import (
 	"strconv"
 	"strings"
 	"testing"
+	"time"
+
+	"heliocal/config"
+	"heliocal/feed"
+	"heliocal/feed/publish"
 )
 
 // docs/serving.md's row for /healthz names every field of its JSON, and
@@ -47,28 +53,63 @@ func TestHealthFieldsDocumented(t *testing.T) {
 }
 
 // docs/serving.md's ratios of the gzip forms hold for the feed of the fleet
-// (internal/fleet's first site: the daily Sun kinds over 400 days): the
-// configured feeds' default level within "about N- to M-fold" and the
-// figure it gives for that feed to 0.1, the ad-hoc feeds' fastest level
-// within "about N- to M-fold" too.
+// (internal/fleet's first site: the daily Sun kinds over 400 days) and for
+// one of dark windows and the Moon's phases at the same site over the same
+// window: the configured feeds' default level within "about N- to M-fold"
+// and the figure it gives for each feed to 0.1, the ad-hoc feeds' fastest
+// level (for the fleet's feed) within "about N- to M-fold" too.
 func TestGzipRatiosDocumented(t *testing.T) {
 	doc, err := os.ReadFile("../../docs/serving.md")
 	if err != nil {
 		t.Fatal(err)
 	}
-	conf := regexp.MustCompile(`once per\s+rebuild \(about (\d+)- to (\d+)-fold: ([\d.]+)-fold for a 400-day feed`).FindSubmatch(doc)
+	conf := regexp.MustCompile(`once per\s+rebuild \(about (\d+)- to (\d+)-fold: ([\d.]+)-fold for a 400-day feed of the daily Sun kinds,\s+([\d.]+)-fold for\s+one of\s+dark windows and the Moon's phases\)`).FindSubmatch(doc)
 	adhoc := regexp.MustCompile(`compressed at the fastest level \(about (\d+)- to (\d+)-fold`).FindSubmatch(doc)
 	if conf == nil || adhoc == nil {
 		t.Fatal("docs/serving.md: the ratios of the configured and the ad-hoc feeds' gzip forms not found")
 	}
 	num := func(b []byte) float64 { f, _ := strconv.ParseFloat(string(b), 64); return f }
 	_, data, _ := fleetBundle(t, nil)
-	def := float64(len(data)) / float64(len(gzipBytes(data)))
-	fast := float64(len(data)) / float64(len(gzipFast(data)))
-	if def < num(conf[1]) || def > num(conf[2]) || math.Abs(def-num(conf[3])) > 0.05 {
-		t.Errorf("the fleet's feed compresses %.2f-fold at the default level; docs/serving.md says %s, %s-fold for it", def, conf[0], conf[3])
+	dark := darkFeed(t)
+	for _, c := range []struct {
+		what string
+		data []byte
+		said []byte
+	}{{"the fleet's feed", data, conf[3]}, {"the dark windows' and Moon phases' feed", dark, conf[4]}} {
+		def := float64(len(c.data)) / float64(len(gzipBytes(c.data)))
+		if def < num(conf[1]) || def > num(conf[2]) || math.Abs(def-num(c.said)) > 0.05 {
+			t.Errorf("%s compresses %.2f-fold at the default level; docs/serving.md says %s, %s-fold for it", c.what, def, conf[0], c.said)
+		}
 	}
+	fast := float64(len(data)) / float64(len(gzipFast(data)))
 	if fast < num(adhoc[1]) || fast > num(adhoc[2]) {
 		t.Errorf("the fleet's feed compresses %.2f-fold at the fastest level; docs/serving.md says %s", fast, adhoc[0])
 	}
+}
+
+// darkFeed is the bytes of a feed of dark windows and the Moon's phases at
+// the fleet's first site (internal/fleet), over the 400 days of its feed.
+func darkFeed(tb testing.TB) []byte {
+	tb.Helper()
+	const yaml = `sites:
+  - {id: site-0000, name: Fleet site 0, latitude: 48.2000, longitude: 16.4000, elevation: 0, timezone: Europe/Vienna}
+feeds:
+  - {id: site-0000-dark, title: Fleet site 0 dark sky, site: site-0000, days_back: 30, days_ahead: 369,
+     kinds: [dark-window, moon-phases]}
+`
+	cfg, err := config.Parse(strings.NewReader(yaml), "yaml")
+	if err != nil {
+		tb.Fatal(err)
+	}
+	cat, err := feed.NewCatalogue(cfg, feed.Options{Now: time.Date(2027, 3, 20, 12, 0, 0, 0, time.UTC), Refresh: 24 * time.Hour})
+	if err != nil {
+		tb.Fatal(err)
+	}
+	f := &cfg.Feeds[0]
+	srcs := []publish.Source{{ID: f.ID, Build: func(ctx context.Context) (*feed.Calendar, error) { return cat.Calendar(ctx, f) }}}
+	b, err := publish.Render(context.Background(), srcs, publish.RenderOptions{MaxFeedBytes: -1})
+	if err != nil {
+		tb.Fatal(err)
+	}
+	return b.File(f.ID + ".ics").Data
 }

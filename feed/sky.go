@@ -351,11 +351,18 @@ func missingDates(loc *time.Location, first, last time.Time) []time.Time {
 	}
 	var out []time.Time
 	for d := first; !d.After(last); d = d.AddDate(0, 0, 1) {
-		if !localDate(midnight(d, loc), loc).Equal(d) {
+		if skipped(d, loc) {
 			out = append(out, d)
 		}
 	}
 	return out
+}
+
+// skipped reports whether the local date d (00:00 UTC) does not exist in
+// loc: the clocks jump over it whole, so its first instant is on another
+// date.
+func skipped(d time.Time, loc *time.Location) bool {
+	return !localDate(midnight(d, loc), loc).Equal(d)
 }
 
 // gone reports whether the local date d (00:00 UTC, first-2..last+1) does

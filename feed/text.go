@@ -294,7 +294,7 @@ func appendDate(b []byte, t time.Time) []byte {
 // 29–31 December 2011". A nil loc is UTC.
 func NightOf(d time.Time, loc *time.Location) string {
 	n := d.AddDate(0, 0, 1)
-	if loc != nil && !localDate(midnight(n, loc), loc).Equal(n) {
+	if loc != nil && skipped(n, loc) {
 		n = n.AddDate(0, 0, 1) // the clocks jump over the whole date
 	}
 	switch {

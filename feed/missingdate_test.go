@@ -126,3 +126,39 @@ func TestStretchFromDateTheClocksSkip(t *testing.T) {
 		}
 	}
 }
+
+// The dates the clocks jump over whole, as the tz database has them
+// (zdump -v): Pacific/Kiritimati from 23:59:59 on 30 December 1994 (UTC−10)
+// to 00:00 on 1 January 1995 (UTC+14), Asia/Manila from 23:59:59 on 30
+// December 1844 (its local mean time counted west, −15:56:08) to
+// 00:00 on 1 January 1845 (+8:03:52), Pacific/Apia over 30 December 2011;
+// Europe/Vienna's clock changes skip an hour, never a date. NightOf names
+// the night of the date before such a date to the date after it.
+func TestMissingDates(t *testing.T) {
+	for _, tc := range []struct {
+		zone, first, last, want, night string
+	}{
+		{"Pacific/Kiritimati", "1994-12-20", "1995-01-10", "1994-12-31", "night of 30 December 1994–1 January 1995"},
+		{"Asia/Manila", "1844-12-20", "1845-01-10", "1844-12-31", "night of 30 December 1844–1 January 1845"},
+		{"Pacific/Apia", "2011-12-01", "2012-01-31", "2011-12-30", "night of 29–31 December"},
+		{"Europe/Vienna", "2027-01-01", "2027-12-31", "", ""},
+	} {
+		loc, err := time.LoadLocation(tc.zone)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var got []string
+		for _, d := range missingDates(loc, date(tc.first), date(tc.last)) {
+			got = append(got, d.Format(time.DateOnly))
+		}
+		if strings.Join(got, ",") != tc.want {
+			t.Errorf("%s %s..%s: dates %v skipped, want %q", tc.zone, tc.first, tc.last, got, tc.want)
+		}
+		if tc.want == "" {
+			continue
+		}
+		if n := NightOf(date(tc.want).AddDate(0, 0, -1), loc); !strings.HasPrefix(n, tc.night) {
+			t.Errorf("%s: %q, want %q", tc.zone, n, tc.night)
+		}
+	}
+}

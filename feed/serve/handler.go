@@ -257,14 +257,7 @@ func writeAsset(w http.ResponseWriter, r *http.Request, a *asset, cacheControl [
 // asked for by a client that does not take gzip: its bytes are inflated
 // into the response as they are written, never held whole.
 func writeInflated(w http.ResponseWriter, r *http.Request, a *asset) {
-	h := w.Header()
-	if a.lastModified != nil {
-		h["Last-Modified"] = a.lastModified
-	}
-	h["Accept-Ranges"] = hdrBytes
-	h["Content-Length"] = []string{strconv.Itoa(a.size)}
-	w.WriteHeader(http.StatusOK)
-	if r.Method != http.MethodHead {
+	if writeWholeHeader(w, r, a.lastModified, a.size) {
 		gunzipTo(w, a.gz) // an error is the client's going away: nothing to tell it
 	}
 }
@@ -288,16 +281,22 @@ func unconditional(r *http.Request) bool {
 // The body is written with one call: ServeContent's io.CopyN allocated a
 // 32 kB copy buffer for every response.
 func writeWhole(w http.ResponseWriter, r *http.Request, lastModified []string, body *bytes.Reader) {
+	if writeWholeHeader(w, r, lastModified, body.Len()) {
+		body.WriteTo(w)
+	}
+}
+
+// writeWholeHeader writes the header of writeWhole's response, for a body
+// of size bytes, and reports whether the body is to follow (not for HEAD).
+func writeWholeHeader(w http.ResponseWriter, r *http.Request, lastModified []string, size int) bool {
 	h := w.Header()
 	if lastModified != nil {
 		h["Last-Modified"] = lastModified
 	}
 	h["Accept-Ranges"] = hdrBytes
-	h["Content-Length"] = []string{strconv.Itoa(body.Len())}
+	h["Content-Length"] = []string{strconv.Itoa(size)}
 	w.WriteHeader(http.StatusOK)
-	if r.Method != http.MethodHead {
-		body.WriteTo(w)
-	}
+	return r.Method != http.MethodHead
 }
 
 // health is the /healthz body.

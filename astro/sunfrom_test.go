@@ -108,8 +108,9 @@ func TestSunFromNOAA(t *testing.T) {
 // altitude: its arc on the sky) are held within 1″ when SunFrom's
 // computation is run at PyEphem's time scales (UT1 = UTC, TT = UTC + its
 // ΔT; 0.51″ at most measured; PyEphem has its own theory of the Sun and
-// precession, without the 0.3″ per century correction of sun.go). SunFrom itself is held within 1″ plus what the time
-// scales move: PyEphem reads the date as UT1 and takes its own ΔT, so
+// precession, without the 0.3″ per century correction of sun.go). SunFrom
+// itself is held within 1″ plus what the time scales move: PyEphem reads
+// the date as UT1 and takes its own ΔT, so
 // where ours differs (by 208 s in 2150) it evaluates the Sun at another TT
 // instant, when the Sun stood up to 0.043″ per second away (its motion
 // along the ecliptic near perihelion, 360°/365.25 d at 0.967 au: common
@@ -195,8 +196,9 @@ func TestSunFromPyEphem(t *testing.T) {
 // right ascension is the geocentric one, and eq. 40.3 gives
 // tan δ′ = (sin δ − ρ sin φ′ sin π) / cos δ with sin π = sin 8.794″ / R
 // (eq. 40.1; ρ sin φ′ = ±b/a = ±(1 − f) for WGS 84); the altitude is then
-// δ′ at the north pole, −δ′ at the south. This package adds the IAU 2000 precession-rate correction the book
-// lacks (0.02″ here): α within 0.002 s, δ′ and the altitude within 0.05″.
+// δ′ at the north pole, −δ′ at the south. This package adds the IAU 2000
+// precession-rate correction the book lacks (0.02″ here): α within
+// 0.002 s, δ′ and the altitude within 0.05″.
 func TestSunFromMeeus25b(t *testing.T) {
 	row := workedExamples(t, "M25b-radec")[0]["expected"]
 	m := regexp.MustCompile(`alpha=(\d+)h(\d+)m([0-9.]+)s; delta=(-?)(\d+)d(\d+)m([0-9.]+)s`).FindStringSubmatch(row)

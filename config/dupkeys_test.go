@@ -208,12 +208,13 @@ kind = "sunset"
 // time written: YAML 1.1, which the decoder follows there, reads 0530 as
 // octal, 344 ("03:44"), and 0700 as 448 ("04:48"); YAML 1.2 (yaml.org/spec/
 // 1.2.2, 10.3.2 "Tag Resolution": octal is 0o…) reads them as 530 and 700.
-// Written in quotes, "0530" is text and not a clock time, told the same.
+// Either way the value is shown as written, 0530. Written in quotes, "0530"
+// is text and not a clock time, told the same.
 func TestClockWrittenWithLeadingZero(t *testing.T) {
 	const head = "sites:\n  - {id: a, latitude: 47.5, longitude: 9.7, timezone: Europe/Zurich}\nfeeds:\n  - id: f\n    site: a\n"
 	for in, want := range map[string]string{
-		"    kinds:\n      - kind: lighting:16h\n        earliest_on: 0530\n":          `feeds[0].kinds[0].earliest_on: 530: must be text, not a number (write it "05:30")`,
-		"    plans:\n      - title: x\n        date: every day\n        start: 0700\n": `feeds[0].plans[0].start: 700: must be text, not a number (write it "07:00")`,
+		"    kinds:\n      - kind: lighting:16h\n        earliest_on: 0530\n":          `feeds[0].kinds[0].earliest_on: 0530: must be text, not a number (write it "05:30")`,
+		"    plans:\n      - title: x\n        date: every day\n        start: 0700\n": `feeds[0].plans[0].start: 0700: must be text, not a number (write it "07:00")`,
 	} {
 		_, err := Parse(strings.NewReader(head+in), "yaml")
 		if err == nil || !strings.Contains(err.Error(), want) {

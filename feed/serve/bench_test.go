@@ -20,7 +20,22 @@ import (
 // bytes, and the bundle, with gzip as its RenderOptions.Gzip.
 func fleetBundle(tb testing.TB, gzip GzipFunc) (name string, data []byte, b *publish.Bundle) {
 	tb.Helper()
-	cfg, err := config.Parse(strings.NewReader(fleet.YAML(1)), "yaml")
+	name, srcs := firstFeed(tb, fleet.YAML(1))
+	whole, err := publish.Render(context.Background(), srcs, publish.RenderOptions{MaxFeedBytes: -1})
+	if err != nil {
+		tb.Fatal(err)
+	}
+	if b, err = publish.Render(context.Background(), srcs, publish.RenderOptions{MaxFeedBytes: -1, Gzip: gzip}); err != nil {
+		tb.Fatal(err)
+	}
+	return name, whole.File(name).Data, b
+}
+
+// firstFeed is the file name of the first feed of the configuration
+// yamlText and the source that builds it, as of 20 March 2027.
+func firstFeed(tb testing.TB, yamlText string) (name string, srcs []publish.Source) {
+	tb.Helper()
+	cfg, err := config.Parse(strings.NewReader(yamlText), "yaml")
 	if err != nil {
 		tb.Fatal(err)
 	}
@@ -29,16 +44,7 @@ func fleetBundle(tb testing.TB, gzip GzipFunc) (name string, data []byte, b *pub
 		tb.Fatal(err)
 	}
 	f := &cfg.Feeds[0]
-	srcs := []publish.Source{{ID: f.ID, Build: func(ctx context.Context) (*feed.Calendar, error) { return cat.Calendar(ctx, f) }}}
-	whole, err := publish.Render(context.Background(), srcs, publish.RenderOptions{MaxFeedBytes: -1})
-	if err != nil {
-		tb.Fatal(err)
-	}
-	if b, err = publish.Render(context.Background(), srcs, publish.RenderOptions{MaxFeedBytes: -1, Gzip: gzip}); err != nil {
-		tb.Fatal(err)
-	}
-	name = f.ID + ".ics"
-	return name, whole.File(name).Data, b
+	return f.ID + ".ics", []publish.Source{{ID: f.ID, Build: func(ctx context.Context) (*feed.Calendar, error) { return cat.Calendar(ctx, f) }}}
 }
 
 // BenchmarkServeFeedIdentity: the handler's cost for a full response to a

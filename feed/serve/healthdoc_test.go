@@ -10,10 +10,7 @@ import (
 	"strconv"
 	"strings"
 	"testing"
-	"time"
 
-	"heliocal/config"
-	"heliocal/feed"
 	"heliocal/feed/publish"
 )
 
@@ -97,19 +94,10 @@ feeds:
   - {id: site-0000-dark, title: Fleet site 0 dark sky, site: site-0000, days_back: 30, days_ahead: 369,
      kinds: [dark-window, moon-phases]}
 `
-	cfg, err := config.Parse(strings.NewReader(yaml), "yaml")
-	if err != nil {
-		tb.Fatal(err)
-	}
-	cat, err := feed.NewCatalogue(cfg, feed.Options{Now: time.Date(2027, 3, 20, 12, 0, 0, 0, time.UTC), Refresh: 24 * time.Hour})
-	if err != nil {
-		tb.Fatal(err)
-	}
-	f := &cfg.Feeds[0]
-	srcs := []publish.Source{{ID: f.ID, Build: func(ctx context.Context) (*feed.Calendar, error) { return cat.Calendar(ctx, f) }}}
+	name, srcs := firstFeed(tb, yaml)
 	b, err := publish.Render(context.Background(), srcs, publish.RenderOptions{MaxFeedBytes: -1})
 	if err != nil {
 		tb.Fatal(err)
 	}
-	return b.File(f.ID + ".ics").Data
+	return b.File(name).Data
 }

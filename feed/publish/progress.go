@@ -152,17 +152,93 @@ func Summary(st Stats, dir string) string {
 }
 
 // Warnings are the lines of Summary about feeds shortened to fit
-// MaxFeedBytes ("note: …") and feeds over it ("warning: …"), for a run that
-// prints nothing else.
+// MaxFeedBytes ("note: …", TrimNotes) and feeds over it ("warning: …",
+// OversizeWarnings), for a run that prints nothing else.
 func Warnings(st Stats) []string {
 	var out []string
-	for _, t := range st.Trimmed {
-		out = append(out, "note: "+TrimNote(t, st.MaxFeedBytes))
+	for _, n := range TrimNotes(st.Trimmed, st.MaxFeedBytes) {
+		out = append(out, "note: "+n)
 	}
-	for _, f := range st.Oversize {
-		out = append(out, "warning: "+OversizeWarning(f.ID, f.Bytes, st.MaxFeedBytes))
+	for _, w := range OversizeWarnings(st.Oversize, st.MaxFeedBytes) {
+		out = append(out, "warning: "+w)
 	}
 	return out
+}
+
+// EachWarned is how many feeds of one warning or note (and one outcome:
+// published as they are, shortened) get a line of their own, in the words
+// of OversizeWarning or TrimNote; the feeds after them are named together
+// in one line, each with its size, so that a fleet of a thousand feeds
+// over the limit reads as four lines, not a thousand, and still names
+// every feed.
+const EachWarned = 3
+
+// OversizeWarnings are the warnings about feeds over limit under
+// service.oversize: warn, in the configuration's order: the first
+// EachWarned each in OversizeWarning's words, then OversizeMore for the
+// rest, if any.
+func OversizeWarnings(feeds []FeedInfo, limit int) []string {
+	var out []string
+	for i, f := range feeds {
+		if i == EachWarned {
+			return append(out, OversizeMore(feeds[i:], limit))
+		}
+		out = append(out, OversizeWarning(f.ID, f.Bytes, limit))
+	}
+	return out
+}
+
+// OversizeMore names together the feeds over limit after the first
+// EachWarned, each with its size as OversizeWarning writes it: "27 more
+// feeds over service.max_feed_bytes (1 MB), published as they are:
+// site-0003-daily (1.1 MB), site-0004-daily (1.1 MB), …", every one of
+// them named.
+func OversizeMore(feeds []FeedInfo, limit int) string {
+	var b strings.Builder
+	fmt.Fprintf(&b, "%s more %s over service.max_feed_bytes (%s), published as %s:",
+		feed.FormatCount(len(feeds)), plural(len(feeds), "feed", "feeds"), formatLimit(int64(limit)),
+		plural(len(feeds), "it is", "they are"))
+	for i, f := range feeds {
+		size, _ := FormatBytesOver(int64(f.Bytes), int64(limit))
+		if i > 0 {
+			b.WriteByte(',')
+		}
+		fmt.Fprintf(&b, " %s (%s)", f.ID, size)
+	}
+	return b.String()
+}
+
+// TrimNotes are the notes about feeds shortened to stay under limit
+// (service.oversize: trim), in the configuration's order: the first
+// EachWarned each in TrimNote's words, then TrimMore for the rest, if any.
+func TrimNotes(ts []Trimmed, limit int) []string {
+	var out []string
+	for i, t := range ts {
+		if i == EachWarned {
+			return append(out, TrimMore(ts[i:], limit))
+		}
+		out = append(out, TrimNote(t, limit))
+	}
+	return out
+}
+
+// TrimMore names together the feeds shortened to stay under limit after
+// the first EachWarned, each with the date it reaches and its size as
+// TrimNote writes them: "27 more feeds shortened to stay under 1 MB:
+// site-0003-daily.ics to 2027-06-03 (now 974.6 kB), …", every one of them
+// named.
+func TrimMore(ts []Trimmed, limit int) string {
+	var b strings.Builder
+	fmt.Fprintf(&b, "%s more %s shortened to stay under %s:",
+		feed.FormatCount(len(ts)), plural(len(ts), "feed", "feeds"), formatLimit(int64(limit)))
+	for i, t := range ts {
+		now, _ := FormatBytesOver(int64(t.Feed.Bytes), int64(limit))
+		if i > 0 {
+			b.WriteByte(',')
+		}
+		fmt.Fprintf(&b, " %s to %s (now %s)", t.Feed.File, t.To.Format(time.DateOnly), now)
+	}
+	return b.String()
 }
 
 // OversizeWarning is the warning about the feed id of the given size over

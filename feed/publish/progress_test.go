@@ -2,6 +2,7 @@ package publish
 
 import (
 	"bytes"
+	"fmt"
 	"strings"
 	"testing"
 	"time"
@@ -45,4 +46,74 @@ func TestProgressQuietWithoutTerminal(t *testing.T) {
 	nilP.Start(1)
 	nilP.Feed(FeedInfo{}, true)
 	nilP.Finish(Stats{}, "")
+}
+
+// Feeds over the limit under service.oversize: warn get a warning each up
+// to EachWarned of them; the rest are named together in one line, each
+// with its size, none left out: a fleet of 30 reads as 3 + 1 lines.
+func TestOversizeWarningsGrouped(t *testing.T) {
+	feeds := make([]FeedInfo, 30)
+	for i := range feeds {
+		feeds[i] = FeedInfo{ID: fmt.Sprintf("site-%04d-daily", i), Bytes: 1_100_000 + 10_000*i}
+	}
+	got := OversizeWarnings(feeds, 1_000_000)
+	if len(got) != EachWarned+1 {
+		t.Fatalf("%d feeds over the limit gave %d lines, want %d: %q", len(feeds), len(got), EachWarned+1, got)
+	}
+	for i := range EachWarned {
+		if want := OversizeWarning(feeds[i].ID, feeds[i].Bytes, 1_000_000); got[i] != want {
+			t.Errorf("line %d = %q, want %q", i, got[i], want)
+		}
+	}
+	more := got[EachWarned]
+	if !strings.HasPrefix(more, "27 more feeds over service.max_feed_bytes (1 MB), published as they are: site-0003-daily (1.1 MB), site-0004-daily (1.1 MB), ") ||
+		!strings.HasSuffix(more, ", site-0029-daily (1.4 MB)") || strings.Contains(more, "…") {
+		t.Errorf("the line of the rest = %q", more)
+	}
+	for i, f := range feeds {
+		if n := strings.Count(strings.Join(got, "\n"), f.ID); n != 1 {
+			t.Errorf("feed %d (%s) named %d times, want once", i, f.ID, n)
+		}
+	}
+	// up to EachWarned feeds keep a line each; one more is named alone
+	if got := OversizeWarnings(feeds[:EachWarned], 1_000_000); len(got) != EachWarned || strings.Contains(strings.Join(got, "\n"), "more feed") {
+		t.Errorf("%d feeds over the limit gave %q, want a line each", EachWarned, got)
+	}
+	got = OversizeWarnings(feeds[:EachWarned+1], 1_000_000)
+	if want := "1 more feed over service.max_feed_bytes (1 MB), published as it is: site-0003-daily (1.1 MB)"; len(got) != EachWarned+1 || got[EachWarned] != want {
+		t.Errorf("%d feeds over the limit gave %q, want the last line %q", EachWarned+1, got, want)
+	}
+	// publish's summary (and --quiet) writes them so
+	st := Stats{Feeds: 30, FeedsWritten: 30, Oversize: feeds, MaxFeedBytes: 1_000_000}
+	if n := strings.Count(Summary(st, "public"), "\nwarning: "); n != EachWarned+1 {
+		t.Errorf("the summary has %d warnings, want %d:\n%s", n, EachWarned+1, Summary(st, "public"))
+	}
+}
+
+// Feeds shortened to fit under service.oversize: trim get TrimNote each up
+// to EachWarned of them; the rest are named together in one line with the
+// date each reaches and its size, none left out.
+func TestTrimNotesGrouped(t *testing.T) {
+	to := time.Date(2027, 10, 1, 0, 0, 0, 0, time.UTC)
+	ts := make([]Trimmed, 5)
+	for i := range ts {
+		id := fmt.Sprintf("plot-%d", i)
+		ts[i] = Trimmed{Feed: FeedInfo{ID: id, File: id + ".ics", Events: 2000 + i, Bytes: 970_000 + 1_000*i}, To: to.AddDate(0, 0, i)}
+	}
+	got := TrimNotes(ts, 1_000_000)
+	if len(got) != EachWarned+1 {
+		t.Fatalf("%d feeds shortened gave %d lines, want %d: %q", len(ts), len(got), EachWarned+1, got)
+	}
+	for i := range EachWarned {
+		if want := TrimNote(ts[i], 1_000_000); got[i] != want {
+			t.Errorf("line %d = %q, want %q", i, got[i], want)
+		}
+	}
+	if want := "2 more feeds shortened to stay under 1 MB: plot-3.ics to 2027-10-04 (now 973.0 kB), plot-4.ics to 2027-10-05 (now 974.0 kB)"; got[EachWarned] != want {
+		t.Errorf("the line of the rest = %q, want %q", got[EachWarned], want)
+	}
+	st := Stats{Feeds: 5, FeedsWritten: 5, Trimmed: ts, MaxFeedBytes: 1_000_000}
+	if n := strings.Count(Summary(st, "public"), "\nnote: "); n != EachWarned+1 {
+		t.Errorf("the summary has %d notes, want %d:\n%s", n, EachWarned+1, Summary(st, "public"))
+	}
 }

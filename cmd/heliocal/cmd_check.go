@@ -85,6 +85,14 @@ type checkReport struct {
 	// limit is service.max_feed_bytes, which the text table's size of an
 	// Oversize feed is told apart from, as its warning or note tells it
 	limit int
+	// oversize are the feeds over limit published as they are, their
+	// warnings at oversizeAt in Warnings; trimmed the feeds shortened to
+	// fit, their notes at trimmedAt in Notes: the text names those after
+	// the first few together (publish.OversizeWarnings, TrimNotes), the
+	// JSON each in its own line
+	oversize              []publish.FeedInfo
+	oversizeAt, trimmedAt []int
+	trimmed               []publish.Trimmed
 }
 
 type checkProblem struct {
@@ -311,10 +319,13 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		case !cal.TrimmedTo.IsZero():
 			cf.Bytes, cf.Oversize, cf.TrimmedTo = len(data), true, cal.TrimmedTo.Format(time.DateOnly)
 			t := publish.Trimmed{Feed: publish.FeedInfo{ID: f.ID, File: f.ID + ".ics", Events: cf.Events, Bytes: cf.Bytes}, To: cal.TrimmedTo}
+			r.trimmed, r.trimmedAt = append(r.trimmed, t), append(r.trimmedAt, len(r.Notes))
 			r.Notes = append(r.Notes, publish.TrimNote(t, limit))
 		default:
 			cf.Bytes, cf.Oversize = len(data), limit > 0 && len(data) > limit
 			if cf.Oversize {
+				r.oversize = append(r.oversize, publish.FeedInfo{ID: f.ID, File: f.ID + ".ics", Events: cf.Events, Bytes: cf.Bytes})
+				r.oversizeAt = append(r.oversizeAt, len(r.Warnings))
 				r.Warnings = append(r.Warnings, publish.OversizeWarning(f.ID, len(data), limit))
 			}
 		}
@@ -364,14 +375,35 @@ func writeCheckText(g *globals, r *checkReport, zoneLines []string) error {
 		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\n", f.ID, f.Site, strings.Join(kinds, ","), window(f.DaysBack, f.DaysAhead), feed.FormatCount(f.Events), f.size(r.limit))
 	}
 	tw.Flush()
-	for _, n := range r.Notes {
+	for _, n := range grouped(r.Notes, r.trimmedAt, publish.TrimNotes(r.trimmed, r.limit)) {
 		fmt.Fprintln(w, "note: "+n)
 	}
 	_, err := g.stdout.Write(w.Bytes())
-	for _, wmsg := range r.Warnings {
+	for _, wmsg := range grouped(r.Warnings, r.oversizeAt, publish.OversizeWarnings(r.oversize, r.limit)) {
 		fmt.Fprintln(g.stderr, "warning: "+wmsg)
 	}
 	return err
+}
+
+// grouped is lines with those at the indexes at (ascending), one per feed
+// of a kind, replaced in turn by the lines of group, which tell the first
+// feeds each in its own line and name the rest together in one
+// (publish.OversizeWarnings, publish.TrimNotes): that line takes the place
+// of the first feed it names, and the later feeds' own lines are left out.
+func grouped(lines []string, at []int, group []string) []string {
+	out := make([]string, 0, len(lines))
+	k := 0
+	for i, l := range lines {
+		if k < len(at) && at[k] == i {
+			if k < len(group) {
+				out = append(out, group[k])
+			}
+			k++
+			continue
+		}
+		out = append(out, l)
+	}
+	return out
 }
 
 // size writes a feed's size as every size heliocal reports, and that of a

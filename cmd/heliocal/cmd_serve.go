@@ -107,7 +107,9 @@ func reloadServe(ctx context.Context, g *globals, log *slog.Logger, srv *serve.S
 // A feed over service.max_feed_bytes under service.oversize: warn is
 // served and logged likewise, in the words of check and publish; under
 // service.oversize: trim publish's note on the shortened feed is logged,
-// at WARN, after the first build that shortens it.
+// at WARN, after the first build that shortens it. As publish does, the
+// first feeds of each get a record of their own and the rest one record
+// naming them together (warnGrouped).
 func serveBuild(cfg *config.Config, base string, log *slog.Logger) serve.BuildFunc {
 	var mu sync.Mutex
 	logged := map[string]bool{} // what the latest build warned about: lamp limits, feeds shortened or over the limit
@@ -135,18 +137,46 @@ func serveBuild(cfg *config.Config, base string, log *slog.Logger) serve.BuildFu
 		for _, w := range lamps.warnings() {
 			warn(w.limit, w.text)
 		}
+		// the feeds newly shortened or over the limit: the first few each
+		// in a record of its own, the rest named together in one
+		var trimmed []publish.Trimmed
+		var trimmedIDs []string
 		for _, t := range b.Trimmed { // service.oversize: trim: publish's note
-			warn("trimmed:"+t.Feed.ID, publish.TrimNote(t, opts.MaxFeedBytes))
+			if key := "trimmed:" + t.Feed.ID; !logged[key] {
+				trimmed, trimmedIDs = append(trimmed, t), append(trimmedIDs, t.Feed.ID)
+			}
+			found["trimmed:"+t.Feed.ID] = true
 		}
+		warnGrouped(log, publish.TrimNotes(trimmed, opts.MaxFeedBytes), trimmedIDs)
 		if opts.Oversize == "" || opts.Oversize == publish.OversizeWarn { // published all the same: say so, as publish does
+			var over []publish.FeedInfo
+			var overIDs []string
 			for _, f := range b.Feeds {
 				if limit := opts.MaxFeedBytes; limit > 0 && f.Bytes > limit {
-					warn("oversize:"+f.ID, publish.OversizeWarning(f.ID, f.Bytes, limit))
+					if key := "oversize:" + f.ID; !logged[key] {
+						over, overIDs = append(over, f), append(overIDs, f.ID)
+					}
+					found["oversize:"+f.ID] = true
 				}
 			}
+			warnGrouped(log, publish.OversizeWarnings(over, opts.MaxFeedBytes), overIDs)
 		}
 		logged = found
 		return b, nil
+	}
+}
+
+// warnGrouped logs at WARN lines, publish.OversizeWarnings or
+// publish.TrimNotes of the feeds ids, a record each: the line that names
+// the feeds after the first publish.EachWarned together carries their ids
+// as feed_ids too, for a reader of the log that takes its attributes.
+func warnGrouped(log *slog.Logger, lines, ids []string) {
+	for i, l := range lines {
+		if i == publish.EachWarned {
+			log.Warn(l, "feed_ids", ids[i:])
+			continue
+		}
+		log.Warn(l)
 	}
 }
 

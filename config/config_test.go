@@ -283,6 +283,12 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-weekdays-one.yaml", "feeds[0].kinds[0].weekdays", "fri", "must be a list, not text", `write it ["fri"]`, 0},
 		// text with commas is a list written without its brackets: its items
 		{"bad-kinds-commas.yaml", "feeds[0].kinds", "sunrise, sunset,", "must be a list, not text", `write it ["sunrise", "sunset"]`, 0},
+		// kinds on lines of their own without dashes are one text to YAML:
+		// its words, when each is a kind, else the text as one item, whose
+		// own error then suggests "golden-hour"
+		{"bad-kinds-dashless.yaml", "feeds[0].kinds", "sunrise sunset", "must be a list, not text", `write it ["sunrise", "sunset"]`, 2},
+		{"bad-kinds-dashless.yaml", "feeds[1].kinds", "golden hour", "must be a list, not text", `write it ["golden hour"]`, 2},
+		{"bad-weekdays-spaces.yaml", "feeds[0].kinds[0].weekdays", "sat sun", "must be a list, not text", `write it ["sat", "sun"]`, 0},
 		// a number there: the list of the month's name (6 is June in the
 		// Gregorian calendar's numbering, ISO 8601), as ["6"] is no month;
 		// a weekday's number has no one numbering, so the names are shown

@@ -1622,6 +1622,8 @@ func listTypeError(to reflect.Type, data any) error {
 		items := strings.Split(value, ",")
 		if _, isText := data.(string); !isText {
 			items = []string{value}
+		} else if len(items) == 1 {
+			items = spacedItems(to, value)
 		}
 		var quoted []string
 		for _, it := range items {
@@ -1632,6 +1634,27 @@ func listTypeError(to reflect.Type, data any) error {
 		hint = "write it [" + strings.Join(quoted, ", ") + "]"
 	}
 	return &valueError{Value: value, Msg: "must be a list, not " + what, Hint: hint}
+}
+
+// spacedItems splits text without commas at its spaces when it is items
+// written one after another: YAML folds the lines of a list without its
+// dashes into one text ("kinds:" over "sunrise" and "sunset" is "sunrise
+// sunset"). Names, dates and addresses hold no spaces, so a list of text
+// is split; a list of kinds only when every word is a kind, as "golden
+// hour" is one kind misspelt, not two.
+func spacedItems(to reflect.Type, value string) []string {
+	words := strings.Fields(value)
+	if len(words) < 2 {
+		return []string{value}
+	}
+	if to.Elem() == kindSpecType {
+		for _, w := range words {
+			if _, err := ParseKind(w); err != nil {
+				return []string{value}
+			}
+		}
+	}
+	return words
 }
 
 // scalarTypeError words a value of the wrong type for to, naming what to

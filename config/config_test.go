@@ -1052,7 +1052,33 @@ func TestProblemsInLineOrder(t *testing.T) {
 			t.Errorf("%s (line %d) after %s (line %d):\n%v", ps[i].Path, ps[i].Line, ps[i-1].Path, ps[i-1].Line, err)
 		}
 	}
-	if len(ps) < 6 {
-		t.Errorf("%d problems, want 6:\n%v", len(ps), err)
+	if len(ps) != 4 {
+		t.Errorf("%d problems, want 4:\n%v", len(ps), err)
+	}
+}
+
+// TestShortKeyNamedOnce: a short key's problem names the key once, in its
+// path, and says what to write; latitude and longitude, which the short
+// keys stand for, are not said to be missing as well, as writing the key
+// the hint names is the one change to make.
+func TestShortKeyNamedOnce(t *testing.T) {
+	_, err := loadTestdata(t, "short-keys.yaml")
+	if err == nil {
+		t.Fatal("no error")
+	}
+	text := err.Error()
+	want := filepath.Join(testdata, "short-keys.yaml") + `:5: sites[0].lat: unknown key (did you mean "latitude"?)`
+	if !strings.Contains(text, want) {
+		t.Errorf("no line %q:\n%s", want, text)
+	}
+	for _, bad := range []string{"lat: lat:", "is required"} {
+		if strings.Contains(text, bad) {
+			t.Errorf("%q in:\n%s", bad, text)
+		}
+	}
+	// a key that is missing without a short key for it still is
+	_, err = loadTestdata(t, "null-latitude.json")
+	if err == nil || !strings.Contains(err.Error(), "sites[0].latitude: is required") {
+		t.Errorf("a missing latitude not said missing: %v", err)
 	}
 }

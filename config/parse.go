@@ -271,6 +271,7 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 			problems[i].Line = lineOf(places, problems[i].Path)
 		}
 	}
+	problems = slices.DeleteFunc(problems, func(p FieldError) bool { return writtenAs(p, problems) })
 	if len(problems) > 0 {
 		ve := newValidationError(problems)
 		// named file:line: as a compiler names them, they come in the
@@ -1782,6 +1783,21 @@ func listHint(format, path string) string {
 		return "a list is written in brackets: [{…}, {…}]"
 	}
 	return `each entry of the list begins with "- "`
+}
+
+// writtenAs reports whether p says a key is required that an unknown key
+// beside it is named as (`lat: unknown key (did you mean "latitude"?)`):
+// that problem says what to write, and once it is followed the key is there.
+func writtenAs(p FieldError, problems []FieldError) bool {
+	dot := strings.LastIndexByte(p.Path, '.')
+	if p.Msg != "is required" || dot < 0 {
+		return false
+	}
+	parent, key := p.Path[:dot+1], p.Path[dot+1:]
+	return slices.ContainsFunc(problems, func(q FieldError) bool {
+		return q.Msg == "unknown key" && q.Hint == didYouMean(key) && strings.HasPrefix(q.Path, parent) &&
+			!strings.ContainsAny(q.Path[len(parent):], ".[")
+	})
 }
 
 // listIndex is the index of a list in a decoder path: "[0]".

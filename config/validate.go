@@ -58,7 +58,9 @@ func (e FieldError) Error() string {
 	var b strings.Builder
 	b.WriteString(e.Path)
 	b.WriteString(": ")
-	if e.Value != "" {
+	if e.Value != "" && !strings.HasSuffix(e.Path, "."+e.Value) && e.Path != e.Value {
+		// a key's path ends in the key itself: "sites[0].lat: unknown
+		// key", not "sites[0].lat: lat: unknown key"
 		b.WriteString(quoteValue(e.Value))
 		b.WriteString(": ")
 	}

@@ -309,7 +309,7 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-plan-start-number.yaml", "feeds[0].plans[0].start", "2000", "must be text, not a number", `write it "20:00"`, 0},
 		// the start is written, though unreadable: its length is no problem of its own
 		{"bad-plan-start-number-for.yaml", "feeds[0].plans[0].start", "2000", "must be text, not a number", `write it "20:00"`, 0},
-		{"bad-earliest-on.yaml", "feeds[0].kinds[0].earliest_on", "5am", "not a clock time", "HH:MM", 0},
+		{"bad-earliest-on.yaml", "feeds[0].kinds[0].earliest_on", "5am", "not a clock time", `the clock has 24 hours: write it "05:00"`, 0},
 		{"lamps-wrong-kind.yaml", "feeds[0].kinds[0].lamps", "evening", "applies only to lighting", "", 0},
 		{"bad-lighting.yaml", "feeds[0].kinds[0]", "lighting:26h", "shorter than 24h", "lighting:12h", 0},
 		{"lighting-offset.yaml", "feeds[0].kinds[0].offset", "30m", "has no meaning for lighting", "latest_off", 0},

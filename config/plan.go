@@ -2,9 +2,11 @@ package config
 
 import (
 	"fmt"
+	"regexp"
 	"slices"
 	"strconv"
 	"strings"
+	"sync"
 	"time"
 )
 
@@ -322,9 +324,20 @@ func parseDateRule(f []string) (DateRule, *RuleError) {
 			hint = `say every what: "every day", "every friday" or "every 04-25"`
 		}
 		return DateRule{}, &RuleError{Msg: "not a date rule", Hint: hint}
+	case len(f) == 1 && f[0][0] >= '0' && f[0][0] <= '9':
+		// no kind begins with a digit: a date of the year without its
+		// "every" ("04-25"), or written as a day and a month ("25.04.")
+		hint := dateRuleHint
+		if m, d, ok := dayOfYear(f[0]); ok {
+			hint = fmt.Sprintf(`every year on %d %s: write "every %02d-%02d"`, d, time.Month(m), m, d)
+		}
+		return DateRule{}, &RuleError{Msg: "not a date rule", Hint: hint}
 	case len(f) == 1:
 		k, err := anchorKind(f[0])
 		if err != nil {
+			if err.Msg == fmt.Sprintf("unknown kind %q", f[0]) {
+				err.Msg = "unknown kind" // the whole rule, which the problem names
+			}
 			return DateRule{}, err
 		}
 		return DateRule{Type: RuleEvent, Event: k}, nil
@@ -354,6 +367,26 @@ func parseDateRule(f []string) (DateRule, *RuleError) {
 }
 
 func isWeekday(s string) bool { _, ok := ParseWeekday(s); return ok }
+
+// dayOfYear reads a date of the year written without a year: MM-DD as a
+// date rule writes it ("04-25", "4-25"), or the day first with dots, as
+// German and many other European languages write dates ("25.04.", "25.4"),
+// when it is a date of the year (29 February included).
+func dayOfYear(s string) (month, day int, ok bool) {
+	if strings.Contains(s, ".") {
+		d, m, found := strings.Cut(strings.TrimSuffix(s, "."), ".")
+		if !found {
+			return 0, 0, false
+		}
+		month, day, ok = monthDay(m + "-" + d)
+	} else {
+		month, day, ok = monthDay(s)
+	}
+	if !ok || month < 1 || month > 12 || day < 1 || day > daysIn(time.Month(month), 2028) { // a leap year: 29 February is a date of the year
+		return 0, 0, false
+	}
+	return month, day, true
+}
 
 // isDayWord reports whether a one-word rule is a weekly or daily rule short
 // of a word: a weekday, "day", "daily" or "every".
@@ -516,12 +549,32 @@ type TimeSpec struct {
 // alone, "0530" or "930": `write it "05:30"`; hint for other text.
 func clockDigitsHint(s, hint string) string {
 	s = strings.TrimSpace(s)
+	if m := twelveHour().FindStringSubmatch(strings.ToLower(s)); m != nil {
+		h, _ := strconv.Atoi(m[1])
+		mm := 0
+		if m[2] != "" {
+			mm, _ = strconv.Atoi(m[2])
+		}
+		if h >= 1 && h <= 12 {
+			h %= 12 // 12 am is midnight, 12 pm noon
+			if m[3][0] == 'p' {
+				h += 12
+			}
+			return fmt.Sprintf(`the clock has 24 hours: write it "%02d:%02d"`, h, mm)
+		}
+	}
 	n, err := strconv.Atoi(s)
 	if err != nil || len(s) < 3 || len(s) > 4 || s[0] == '+' || s[0] == '-' || n/100 > 23 || n%100 > 59 {
 		return hint
 	}
 	return fmt.Sprintf(`write it "%02d:%02d"`, n/100, n%100)
 }
+
+// twelveHour is a clock time of the 12-hour clock: "11:30 pm", "9pm",
+// "8.15 p.m.".
+var twelveHour = sync.OnceValue(func() *regexp.Regexp {
+	return regexp.MustCompile(`^([0-9]{1,2})(?:[:.]([0-5][0-9]))? ?([ap])\.? ?m\.?$`)
+})
 
 const timeSpecHint = `an event with an optional offset, e.g. "sunset", "sunset+30m", "astronomical-dusk-15m", or a local time "20:00"`
 
@@ -577,7 +630,14 @@ func parseTimeSpec(t string, suggest bool) (TimeSpec, *RuleError) {
 				hint = didYouMean(near)
 			}
 		}
-		return TimeSpec{}, &RuleError{Msg: fmt.Sprintf("unknown kind %q", name), Hint: hint}
+		msg := fmt.Sprintf("unknown kind %q", name)
+		if name == t {
+			msg = "unknown kind" // the whole value, which the problem names
+			if hasKindPrefix(strings.Join(strings.Fields(t), "")) {
+				msg = "malformed offset" // "sunset + 30 min": the kind is known
+			}
+		}
+		return TimeSpec{}, &RuleError{Msg: msg, Hint: hint}
 	}
 	if !k.IsInstant() {
 		return TimeSpec{}, notInstant(k)
@@ -619,7 +679,14 @@ var instantHint = "a plan starts and ends at one of " + strings.Join(instantName
 // written ("sunsett+30m": "sunset+30m"), or t without spaces ("sunset +
 // 30m"); "" when neither is a plan time.
 func nearTimeSpec(t, name string) string {
-	near := []string{strings.Join(strings.Fields(t), "")}
+	joined := strings.Join(strings.Fields(t), "")
+	near := []string{joined}
+	if i := strings.LastIndexAny(joined, "+-"); i > 0 {
+		// an offset in words: "sunset + 30 min" is "sunset+30m"
+		if m := wordDuration().FindStringSubmatch(joined[i:]); m != nil {
+			near = append(near, joined[:i]+m[1]+strings.ToLower(m[2][:1]))
+		}
+	}
 	if !hasKindPrefix(name) {
 		// "sunset-15" is a sunset with an offset short of its unit, not
 		// a misspelt kind

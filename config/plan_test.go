@@ -105,6 +105,76 @@ func TestParseTimeSpec(t *testing.T) {
 	}
 }
 
+// A plan time written with the 12-hour clock or with its offset in words
+// gets the time to write; the problem names the value once, so an unknown
+// kind that is the whole value is not repeated in the message.
+func TestPlanTimeWrittenOtherwise(t *testing.T) {
+	for _, tc := range []struct{ in, msg, hint string }{
+		{"11:30 pm", "not a clock time", `the clock has 24 hours: write it "23:30"`},
+		{"9pm", "not a clock time", `the clock has 24 hours: write it "21:00"`},
+		{"12 am", "not a clock time", `the clock has 24 hours: write it "00:00"`},
+		{"12:15 PM", "not a clock time", `the clock has 24 hours: write it "12:15"`},
+		{"8.15 p.m.", "not a clock time", `the clock has 24 hours: write it "20:15"`},
+		{"13pm", "not a clock time", `write HH:MM (00:00..23:59), e.g. "20:00"`},
+		{"sunset + 30 min", "malformed offset", `did you mean "sunset+30m"?`},
+		{"Sunset - 2 hours", "malformed offset", `did you mean "sunset-2h"?`},
+		{"sun set", "unknown kind", `did you mean "sunset"?`},
+		{"sunsett+30m", `unknown kind "sunsett"`, `did you mean "sunset+30m"?`},
+	} {
+		_, err := ParseTimeSpec(tc.in)
+		var re *RuleError
+		if !errors.As(err, &re) || re.Msg != tc.msg || re.Hint != tc.hint {
+			t.Errorf("%q: %v, want %s (%s)", tc.in, err, tc.msg, tc.hint)
+		}
+		if re != nil && re.Hint != "" && strings.HasPrefix(re.Hint, "did you mean") {
+			near := strings.Trim(strings.TrimPrefix(re.Hint, "did you mean "), `"?`)
+			if _, err := ParseTimeSpec(near); err != nil {
+				t.Errorf("%q: the hint %q is refused: %v", tc.in, near, err)
+			}
+		}
+	}
+}
+
+// A date of the year without its "every", or written day first with dots
+// as in German ("25.04."), is told the rule to write; no kind begins with
+// a digit, so it is not called an unknown kind.
+func TestDateRuleDayOfYear(t *testing.T) {
+	for in, hint := range map[string]string{
+		"04-25":  `every year on 25 April: write "every 04-25"`,
+		"4-25":   `every year on 25 April: write "every 04-25"`,
+		"25.04.": `every year on 25 April: write "every 04-25"`,
+		"29.2":   `every year on 29 February: write "every 02-29"`,
+		"31.02.": dateRuleHint,
+		"4/25":   dateRuleHint,
+	} {
+		_, err := ParseDateRule(in)
+		var re *RuleError
+		if !errors.As(err, &re) || re.Msg != "not a date rule" || re.Hint != hint {
+			t.Errorf("%q: %v, want not a date rule (%s)", in, err, hint)
+		}
+		if w, ok := strings.CutPrefix(re.Hint, "every year on "); ok {
+			rule := strings.Trim(w[strings.Index(w, "write ")+len("write "):], `"`)
+			if _, err := ParseDateRule(rule); err != nil {
+				t.Errorf("%q: the hint %q is refused: %v", in, rule, err)
+			}
+		}
+	}
+}
+
+// An unknown kind that is the whole date rule is not named twice:
+// `date: fullmoon: unknown kind (did you mean "full-moon"?)`.
+func TestDateRuleUnknownKindOnce(t *testing.T) {
+	_, err := ParseDateRule("fullmoon")
+	var re *RuleError
+	if !errors.As(err, &re) || re.Msg != "unknown kind" || re.Hint != `did you mean "full-moon"?` {
+		t.Errorf("%v, want unknown kind (did you mean \"full-moon\"?)", err)
+	}
+	_, err = ParseDateRule("saturday nearest fullmoon")
+	if !errors.As(err, &re) || re.Msg != `unknown kind "fullmoon"` {
+		t.Errorf("%v, want the unknown kind of a longer rule named", err)
+	}
+}
+
 // A weekday, "day" or "every" alone is a weekly or daily rule short of a
 // word, not an unknown kind: the hint gives the rule meant.
 func TestDateRuleMissingEvery(t *testing.T) {
@@ -189,7 +259,7 @@ feeds:
 	want := []FieldError{
 		{"feeds[0].plans[0].date", "Saturdy nearest new-moon", `"saturdy" is not a weekday`, `did you mean "saturday nearest new-moon"?`, 7},
 		{"feeds[0].plans[0].start", "sunsett+30m", `unknown kind "sunsett"`, `did you mean "sunset+30m"?`, 7},
-		{"feeds[0].plans[0].end", "sunrse", `unknown kind "sunrse"`, `did you mean "sunrise"?`, 7},
+		{"feeds[0].plans[0].end", "sunrse", "unknown kind", `did you mean "sunrise"?`, 7},
 		{"feeds[0].plans[1].date", "evry friday", "not a date rule", `did you mean "every friday"?`, 8},
 		{"feeds[0].plans[1].months[0]", "juli", "not a month", `did you mean "jul"?`, 8},
 		{"feeds[0].plans[1].months[1]", "febuary", "not a month", `did you mean "february"?`, 8},

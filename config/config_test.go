@@ -203,7 +203,7 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-temperature-fahrenheit.yaml", "sites[0].temperature_c", `"68F"`, "must be a number, not text", "not Fahrenheit: write 20 for 68 °F", 0}, // (68 − 32) × 5/9 = 20 (°C from °F: NIST SP 811, appendix B)
 		{"bad-pressure-text.yaml", "sites[0].pressure_hpa", `"1013 hPa"`, "must be a number", "without the unit: 1013", 0},
 		{"bad-elevation-unit.yaml", "sites[0].elevation", `"420 m"`, "must be a number, not text", "without the unit: 420", 0},
-		{"bad-latitude-dms.yaml", "sites[0].latitude", `"47°30′N"`, "must be a number, not text", "write decimal degrees, north positive, south negative", 0},
+		{"bad-latitude-dms.yaml", "sites[0].latitude", `"47°30′N"`, "must be a number, not text", "write 47.5: decimal degrees, north positive, south negative", 0},
 		{"bad-timezone.yaml", "sites[0].timezone", "Europe/Zurik", "unknown time zone", `"Europe/Zurich"`, 0},
 		{"missing-latitude.yaml", "sites[0].latitude", "", "is required", "degrees", 0},
 		// written without a value: missing, not 0°

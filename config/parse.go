@@ -876,8 +876,18 @@ func tomlSlip(msg string, data []byte, row int) string {
 		if hasEq && strings.Contains(key, " ") && !strings.ContainsAny(key, "\"'") {
 			return at("a key is written without spaces (write %s = %s)", strings.Join(strings.Fields(key), "_"), value)
 		}
-	case strings.HasSuffix(msg, "expected newline but got U+002C ','") && strings.Trim(value, "0123456789,.") == "":
+	case (key == "latitude" || key == "longitude") && strings.HasPrefix(msg, "toml: expected newline but got"):
+		// 47,5 or 74.0W, read as a number and then more: the decimal
+		// degrees they are, not 475 or 740
+		if v, ok := coordinateValue(key, value); ok {
+			text := coordinateText[key]
+			return at("a coordinate is written in %s (write %s = %s)", text[:strings.Index(text, ", e.g.")], key, v)
+		}
+	case strings.HasSuffix(msg, "expected newline but got U+002C ','") && thousands(value):
 		return at("a number is written without separators (write %s = %s)", key, strings.ReplaceAll(value, ",", ""))
+	case strings.HasSuffix(msg, "expected newline but got U+002C ','") && strings.Count(value, ",") == 1 && strings.Trim(value, "+-0123456789,") == "":
+		// 9,7: a decimal comma, not 97
+		return at("a number is written with a decimal point, not a comma (write %s = %s)", key, strings.Replace(value, ",", ".", 1))
 	case strings.HasPrefix(msg, "toml: expected newline but got") && strings.HasPrefix(value, "'") && strings.Count(value, "'") > 2:
 		return at("the text in single quotes ends at its second ' (write it in double quotes: %s = %q)", key, strings.Trim(value, "'"))
 	case strings.HasSuffix(msg, "basic strings cannot have new lines"), strings.HasSuffix(msg, "literal strings cannot have new lines"):
@@ -893,6 +903,22 @@ func tomlSlip(msg string, data []byte, row int) string {
 		}
 	}
 	return ""
+}
+
+// thousands reports whether v is a whole number written with commas
+// between groups of three digits ("1,000,000"), as the thousands separators
+// of English text; "9,7" is a decimal comma.
+func thousands(v string) bool {
+	groups := strings.Split(strings.TrimLeft(v, "+-"), ",")
+	if len(groups) < 2 || len(groups[0]) < 1 || len(groups[0]) > 3 {
+		return false
+	}
+	for i, g := range groups {
+		if strings.Trim(g, "0123456789") != "" || (i > 0 && len(g) != 3) {
+			return false
+		}
+	}
+	return true
 }
 
 // isBareClock says whether w is a clock time "HH:MM" ("20:00", "5:30"),
@@ -2049,10 +2075,8 @@ var byteUnits = map[string]float64{"b": 1, "bytes": 1, "kb": 1e3, "mb": 1e6}
 func NumberTextHint(key, x string) string {
 	num, unit, f, err := numberAndUnit(x)
 	switch {
-	case key == "latitude":
-		return "write " + LatitudeText
-	case key == "longitude":
-		return "write " + LongitudeText
+	case key == "latitude", key == "longitude":
+		return coordinateHint(key, x)
 	case key == "max_illumination":
 		return IlluminationHint(x)
 	case key == "max_feed_bytes":

@@ -124,10 +124,16 @@ func TestYAMLSyntaxSlips(t *testing.T) {
 // must be separated by commas" on the line after.
 func TestTOMLSyntaxSlips(t *testing.T) {
 	for in, want := range map[string]string{
-		"[[feeds]]\nkinds: [\"sunrise\"]\n":                             `line 2: kinds: ["sunrise"]: TOML writes a key and its value with =, not a colon (write kinds = ["sunrise"])`,
-		"[[feeds]]\ndays ahead = 30\n":                                  `line 2: days ahead = 30: a key is written without spaces (write days_ahead = 30)`,
-		"[[feeds]]\nutc = True\n":                                       `line 2: utc = True: not a TOML value (write utc = true)`,
-		"[[feeds]]\ndays_ahead = 1,000\n":                               `line 2: days_ahead = 1,000: a number is written without separators (write days_ahead = 1000)`,
+		"[[feeds]]\nkinds: [\"sunrise\"]\n": `line 2: kinds: ["sunrise"]: TOML writes a key and its value with =, not a colon (write kinds = ["sunrise"])`,
+		"[[feeds]]\ndays ahead = 30\n":      `line 2: days ahead = 30: a key is written without spaces (write days_ahead = 30)`,
+		"[[feeds]]\nutc = True\n":           `line 2: utc = True: not a TOML value (write utc = true)`,
+		"[[feeds]]\ndays_ahead = 1,000\n":   `line 2: days_ahead = 1,000: a number is written without separators (write days_ahead = 1000)`,
+		// a comma before one or two digits is a decimal comma: 9,7 is
+		// 9.7, not 97, which would be another place and pass the checks
+		"[[sites]]\nelevation = 4,5\n":                                  `line 2: elevation = 4,5: a number is written with a decimal point, not a comma (write elevation = 4.5)`,
+		"[[sites]]\nlongitude = 9,7\n":                                  `line 2: longitude = 9,7: a coordinate is written in decimal degrees, east positive, west negative (write longitude = 9.7)`,
+		"[[sites]]\nlongitude = 74.0W\n":                                `line 2: longitude = 74.0W: a coordinate is written in decimal degrees, east positive, west negative (write longitude = -74)`,
+		"[[sites]]\nlatitude = 47.5N\n":                                 `line 2: latitude = 47.5N: a coordinate is written in decimal degrees, north positive, south negative (write latitude = 47.5)`,
 		"[[sites]]\nname = 'O'Brien farm'\n":                            `line 2: name = 'O'Brien farm': the text in single quotes ends at its second ' (write it in double quotes: name = "O'Brien farm")`,
 		"[[sites]]\nname = \"North\nid = \"a\"\n":                       `line 2: name = "North: the text in quotes is not closed on its line (close it there, or write text of several lines in triple quotes: """…""")`,
 		"[[feeds]]\nkinds = [{kind = \"sunrise\",}]\n":                  `line 2: kinds = [{kind = "sunrise",}]: TOML has no comma after the last item of a mapping in braces {…}`,

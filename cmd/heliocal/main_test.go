@@ -219,7 +219,7 @@ func TestEventsBadInput(t *testing.T) {
 		{"flag", []string{"events", "--latitude", "1"}, "latitude"},
 		{"not a number", []string{"events", "--lat", "4O.5", "--lon", "0"}, `heliocal: --lat: "4O.5": not a number (write decimal degrees, north positive, south negative, e.g. -42.88 for 42°52′48″S)` + "\n"},
 		// a place's flags say how to write them, as the site's keys do
-		{"degrees and minutes", []string{"events", "--lat", "0", "--lon", "72°15′W"}, `heliocal: --lon: "72°15′W": not a number (write decimal degrees, east positive, west negative`},
+		{"degrees and minutes", []string{"events", "--lat", "0", "--lon", "72°15′W"}, `heliocal: --lon: "72°15′W": not a number (write -72.25: decimal degrees, east positive, west negative)`},
 		{"elevation with its unit", []string{"events", "--lat", "0", "--lon", "0", "--elev", "120m"}, `--elev: "120m": not a number (write the number alone, without the unit: 120)`},
 		{"elevation in feet", []string{"events", "--lat", "0", "--lon", "0", "--elev", "29000"}, `--elev: 29000: must be within -500..9000 metres (metres above sea level, not feet: write 8839 for 29000 ft)`}, // 29000 × 0.3048 m = 8839.2 m (the international foot, 0.3048 m exactly: NIST SP 811, appendix B)
 		{"latitude out of range", []string{"events", "--lat", "95", "--lon", "0"}, `--lat: 95: must be within -90..90 (decimal degrees, north positive, south negative, e.g. -42.88 for 42°52′48″S)`},

@@ -128,7 +128,7 @@ func TestAdhocBadParameters(t *testing.T) {
 		{ok + "&horizon=2%C2%B0", "horizon", "not a decimal number (write the number alone, without the unit: 2; or skyline points azimuth:altitude, e.g. 0:2,90:8,180:1)"},
 		{ok + "&horizon=-1.5%20deg", "horizon", "not a decimal number (write the number alone, without the unit: -1.5; or skyline points azimuth:altitude, e.g. 0:2,90:8,180:1)"},
 		{ok + "&elev=120%20m", "elev", "not a decimal number (write the number alone, without the unit: 120)"},
-		{"lat=33%C2%B027%E2%80%B2S&lon=13&tz=UTC&kinds=sunrise", "lat", "not a decimal number (write decimal degrees, north positive, south negative, e.g. -42.88 for 42°52′48″S)"},
+		{"lat=33%C2%B027%E2%80%B2S&lon=13&tz=UTC&kinds=sunrise", "lat", "not a decimal number (write -33.45: decimal degrees, north positive, south negative)"},
 		{ok + "&utc=maybe", "utc", `"maybe"`},
 		{ok + "&lat=48", "lat", `"47.5,48"`},
 		{ok + "&latitude=48", "latitude", `"48"`},

@@ -220,6 +220,11 @@ func TestValidationErrors(t *testing.T) {
 		{"duplicate-site-id.yaml", "sites[1].id", "north-field", "duplicate site id, also that of sites[0]", "", 0},
 		{"duplicate-feed-id.yaml", "feeds[1].id", "north-sun", "duplicate feed id, also that of feeds[0]", "", 0},
 		{"bad-site-id.yaml", "sites[0].id", "North Field", "must match [a-z0-9][a-z0-9-]*", `"north-field"`, 0},
+		// the id suggested is one no other feed has, nor is told to take:
+		// following the hint gives no duplicate id
+		{"bad-feed-id-taken.yaml", "feeds[0].id", "North-Sun", "must match [a-z0-9][a-z0-9-]*", `ids become file names and URLs, and "north-sun" is the id of feeds[1]: e.g. "north-sun-2"`, 3},
+		{"bad-feed-id-taken.yaml", "feeds[2].id", "north moon", "must match [a-z0-9][a-z0-9-]*", `ids become file names and URLs; e.g. "north-moon"`, 3},
+		{"bad-feed-id-taken.yaml", "feeds[3].id", "north moon", "must match [a-z0-9][a-z0-9-]*", `ids become file names and URLs, and "north-moon" is the one suggested for feeds[2]: e.g. "north-moon-2"`, 3},
 		{"bad-feed-id.yaml", "feeds[0].id", "north_sun", "must match [a-z0-9][a-z0-9-]*", `"north-sun"`, 0},
 		// nul.ics is the device NUL on Windows
 		{"bad-feed-id-device.yaml", "feeds[0].id", "nul", "is a device name on Windows, with any extension: nul.ics cannot be created there, nor synced to a Windows computer", `e.g. "nul-feed"`, 0},
@@ -1080,5 +1085,20 @@ func TestShortKeyNamedOnce(t *testing.T) {
 	_, err = loadTestdata(t, "null-latitude.json")
 	if err == nil || !strings.Contains(err.Error(), "sites[0].latitude: is required") {
 		t.Errorf("a missing latitude not said missing: %v", err)
+	}
+}
+
+// TestFeedIDHintsFollowed: the ids the hints of bad-feed-id-taken.yaml
+// suggest, written in, give a configuration without problems.
+func TestFeedIDHintsFollowed(t *testing.T) {
+	data, err := os.ReadFile(filepath.Join(testdata, "bad-feed-id-taken.yaml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	text := strings.Replace(string(data), "id: North-Sun", "id: north-sun-2", 1)
+	text = strings.Replace(text, "id: north moon", "id: north-moon", 1)
+	text = strings.Replace(text, "id: north moon", "id: north-moon-2", 1)
+	if _, err := Parse(strings.NewReader(text), "yaml"); err != nil {
+		t.Errorf("the hints followed: %v", err)
 	}
 }

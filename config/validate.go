@@ -232,10 +232,48 @@ func (c *Config) Validate() error {
 			}
 		}
 	}
+	freeSuggestions(ps, "sites", siteIDs)
+	freeSuggestions(ps, "feeds", feedIDs)
 	if len(ps) == 0 {
 		return nil
 	}
 	return newValidationError(ps)
+}
+
+// freeSuggestions makes the id an invalid id of list ("sites", "feeds") is
+// told to write one no other entry has: "North-Sun" beside a feed
+// "north-sun" is told "north-sun-2", as "north-sun" would be a duplicate
+// id when followed. ids are the ids of the list's entries.
+func freeSuggestions(ps problems, list string, ids map[string]int) {
+	owner := make(map[string]string, len(ids)) // an id taken: whose, in words
+	for id, j := range ids {
+		if validID(id) {
+			owner[id] = fmt.Sprintf("the id of %s[%d]", list, j)
+		}
+	}
+	for i := range ps {
+		p := &ps[i]
+		if p.Msg != msgIDPattern || !strings.HasPrefix(p.Path, list+"[") {
+			continue
+		}
+		near := slug(p.Value)
+		if near == "" || !validID(near) {
+			continue
+		}
+		if whose, ok := owner[near]; ok {
+			n := 2
+			for owner[fmt.Sprintf("%s-%d", near, n)] != "" {
+				n++
+			}
+			free := fmt.Sprintf("%s-%d", near, n)
+			if !validID(free) {
+				continue
+			}
+			p.Hint = fmt.Sprintf("ids become file names and URLs, and %q is %s: e.g. %q", near, whose, free)
+			near = free
+		}
+		owner[near] = "the one suggested for " + strings.TrimSuffix(p.Path, ".id")
+	}
 }
 
 func siteList(ids []string) string {
@@ -469,6 +507,8 @@ func windowsDevice(id string) bool {
 	return len(id) == 4 && (id[:3] == "com" || id[:3] == "lpt") && id[3] >= '1' && id[3] <= '9'
 }
 
+const msgIDPattern = "must match [a-z0-9][a-z0-9-]*"
+
 // validID reports whether checkID accepts id.
 func validID(id string) bool {
 	return id != "" && len(id) <= MaxIDLength && idPattern().MatchString(id)
@@ -485,7 +525,7 @@ func checkID(ps *problems, path, id, what string) {
 		if s := slug(id); s != "" && idPattern().MatchString(s) {
 			hint = fmt.Sprintf("ids become file names and URLs; e.g. %q", s)
 		}
-		ps.add(path, id, "must match [a-z0-9][a-z0-9-]*", hint)
+		ps.add(path, id, msgIDPattern, hint)
 	}
 }
 

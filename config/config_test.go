@@ -216,6 +216,11 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-kind-empty.yaml", "feeds[0].kinds[0].kind", `""`, "is empty: name a kind", "known kinds: sunrise, sunset", 0},
 		{"bad-plan-date-words.yaml", "feeds[0].plans[0].date", "every blue moon", `"every" takes one word, a weekday, "day" or a date MM-DD, not "blue moon"`, `"every friday"`, 0},
 		{"unknown-kind.yaml", "feeds[0].kinds[0]", "sunrize", "unknown kind", `did you mean "sunrise"?`, 0},
+		// typographic quotes are part of the text: the value without them,
+		// in straight quotes (YAML takes it without quotes too)
+		{"bad-typographic-quotes.yaml", "sites[0].timezone", "“Europe/Zurich”", "unknown time zone", `the quotes “ ” are typographic, part of the text: write "Europe/Zurich", in straight quotes, or without quotes`, 2},
+		{"bad-typographic-quotes.yaml", "feeds[0].kinds[1]", "“sunset”", "unknown kind", `the quotes “ ” are typographic, part of the text: write "sunset", in straight quotes, or without quotes`, 2},
+		{"bad-typographic-quotes.json", "feeds[0].kinds[1]", "„sunset“", "unknown kind", `the quotes „ “ are typographic, part of the text: write "sunset", in straight quotes`, 0},
 		{"unknown-kind-mapping.yaml", "feeds[0].kinds[1].kind", "moonrize", "unknown kind", `"moonrise"`, 0},
 		{"duplicate-site-id.yaml", "sites[1].id", "north-field", "duplicate site id, also that of sites[0]", "", 0},
 		{"duplicate-feed-id.yaml", "feeds[1].id", "north-sun", "duplicate feed id, also that of feeds[0]", "", 0},

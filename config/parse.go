@@ -272,6 +272,15 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		}
 	}
 	problems = slices.DeleteFunc(problems, func(p FieldError) bool { return writtenAs(p, problems) })
+	for i := range problems {
+		if open, inner, end, ok := typographicQuoted(problems[i].Value); ok {
+			// a phone or a word processor's quotes: part of the text
+			problems[i].Hint = fmt.Sprintf("the quotes %s %s are typographic, part of the text: write %q, in straight quotes", open, end, inner)
+			if format == "yaml" {
+				problems[i].Hint += ", or without quotes"
+			}
+		}
+	}
 	if len(problems) > 0 {
 		ve := newValidationError(problems)
 		// named file:line: as a compiler names them, they come in the
@@ -1809,6 +1818,19 @@ func listHint(format, path string) string {
 		return "a list is written in brackets: [{…}, {…}]"
 	}
 	return `each entry of the list begins with "- "`
+}
+
+// typographicQuoted reports whether v is text in typographic quotes
+// (“sunset”, ‘sunset’, „sunset“, «sunset»), which YAML, TOML and JSON read
+// as part of the text, and returns the quotes and the text within them.
+func typographicQuoted(v string) (open, inner, end string, ok bool) {
+	o, n := utf8.DecodeRuneInString(v)
+	e, m := utf8.DecodeLastRuneInString(v)
+	if len(v) <= n+m || !strings.ContainsRune("“‘„‚«‹”", o) || !strings.ContainsRune("”’“‘»›", e) {
+		return "", "", "", false
+	}
+	inner = strings.TrimSpace(v[n : len(v)-m])
+	return string(o), inner, string(e), inner != ""
 }
 
 // writtenAs reports whether p says a key is required that an unknown key

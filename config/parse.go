@@ -127,7 +127,7 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 	// the TOML and JSON decoders see a character out of place)
 	data = fromUTF16(data)
 	if line, b, ok := notUTF8(data); ok {
-		return nil, fmt.Errorf("%w as %s: line %d: the byte 0x%02X is not UTF-8 text, which a configuration is written in (save the file as UTF-8)", ErrUnreadable, format, line, b)
+		return nil, unreadable(format, fmt.Sprintf("line %d: the byte 0x%02X is not UTF-8 text, which a configuration is written in (save the file as UTF-8)", line, b))
 	}
 	if format != "yaml" {
 		// A byte order mark, which some Windows editors write at the
@@ -146,9 +146,9 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 			return nil, err
 		}
 		if line, end := secondDocument(data); end > 0 {
-			return nil, fmt.Errorf("%w as yaml: line %d: a second document begins here, after the end marker ... of line %d, and heliocal reads one (write every site and feed under one sites: and one feeds:, without ...)", ErrUnreadable, line, end)
+			return nil, unreadable("yaml", fmt.Sprintf("line %d: a second document begins here, after the end marker ... of line %d, and heliocal reads one (write every site and feed under one sites: and one feeds:, without ...)", line, end))
 		} else if line > 0 {
-			return nil, fmt.Errorf("%w as yaml: line %d: a second document begins here with ---, and heliocal reads one (write every site and feed under one sites: and one feeds:)", ErrUnreadable, line)
+			return nil, unreadable("yaml", fmt.Sprintf("line %d: a second document begins here with ---, and heliocal reads one (write every site and feed under one sites: and one feeds:)", line))
 		}
 	}
 	// Duplicate keys are problems of their own; the first of each is kept
@@ -170,7 +170,7 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		if len(dups) > 0 {
 			return nil, newValidationError(dups)
 		}
-		return nil, fmt.Errorf("%w as %s: %s%s", ErrUnreadable, format, syntaxMessage(err, data), formatHint(data, format))
+		return nil, unreadable(format, syntaxMessage(err, data)+formatHint(data, format))
 	}
 	explicit := explicitWindows(v.Get("feeds"))
 	located := explicitCoordinates(v.Get("sites"))
@@ -428,7 +428,7 @@ func yamlVersion(data []byte) ([]byte, error) {
 		case len(bytes.TrimSpace(t)) == 0 || t[0] == '#':
 			continue
 		case t[0] != '%' && last != "" && !docMarker(t, "---"):
-			return nil, fmt.Errorf("%w as yaml: line %d: the directive %s is not followed by ---, the start of the document (add a line --- before line %d, or remove the directive)", ErrUnreadable, at, last, n)
+			return nil, unreadable("yaml", fmt.Sprintf("line %d: the directive %s is not followed by ---, the start of the document (add a line --- before line %d, or remove the directive)", at, last, n))
 		case t[0] != '%':
 			return out, nil
 		}
@@ -452,9 +452,9 @@ func yamlVersion(data []byte) ([]byte, error) {
 			i += bytes.Index(out[i:], []byte(version))
 			out[i+len(version)-1] = '1' // "1.2" read as the decoder's "1.1"
 		case version == "":
-			return nil, fmt.Errorf("%w as yaml: line %d: %%YAML without a version (heliocal reads YAML 1.1 and 1.2: write %%YAML 1.2, or remove the line)", ErrUnreadable, n)
+			return nil, unreadable("yaml", fmt.Sprintf("line %d: %%YAML without a version (heliocal reads YAML 1.1 and 1.2: write %%YAML 1.2, or remove the line)", n))
 		default:
-			return nil, fmt.Errorf("%w as yaml: line %d: %%YAML %s: a version of YAML heliocal does not read (it reads 1.1 and 1.2: write %%YAML 1.2, or remove the line)", ErrUnreadable, n, version)
+			return nil, unreadable("yaml", fmt.Sprintf("line %d: %%YAML %s: a version of YAML heliocal does not read (it reads 1.1 and 1.2: write %%YAML 1.2, or remove the line)", n, version))
 		}
 	}
 	return out, nil
@@ -2385,6 +2385,11 @@ func LoadEnv(path string, env LookupEnv) (*Config, error) {
 		if errors.As(err, &verr) {
 			verr.Source = path
 			return nil, verr
+		}
+		var serr *SyntaxError
+		if errors.As(err, &serr) {
+			serr.Source = path // "farm.yaml:5: cannot read the file as yaml: …"
+			return nil, serr
 		}
 		return nil, fmt.Errorf("%s: %w", path, err)
 	}

@@ -39,7 +39,7 @@ func TestOtherFormatHint(t *testing.T) {
 		{"yaml", "# farm\n[[sites]]\nid = \"north-field\"\nlatitude = 47.5\n",
 			"cannot read the file as yaml: line 2: the document is a list, not a mapping of keys (a configuration starts with keys such as sites: and feeds:); line 2 is TOML, but the file's name makes it read as YAML (rename it .toml, or write it in YAML)"},
 		{"toml", "sites:\n  - id: north-field\n",
-			"cannot read the file as toml: line 1, column 6: toml: expected character =; line 1 is YAML, but the file's name makes it read as TOML (rename it .yaml, or write it in TOML)"},
+			"cannot read the file as toml: line 1, column 6: expected character =; line 1 is YAML, but the file's name makes it read as TOML (rename it .yaml, or write it in TOML)"},
 		{"json", "sites:\n  - id: north-field\n",
 			"cannot read the file as json: line 1: invalid character 's' looking for beginning of value; line 1 is YAML, but the file's name makes it read as JSON (rename it .yaml, or write it in JSON)"},
 		{"json", "[service]\nlisten = \":8080\"\n",
@@ -49,7 +49,7 @@ func TestOtherFormatHint(t *testing.T) {
 		{"json", "{\"sites\": [}\n",
 			"cannot read the file as json: line 1: invalid character '}' looking for beginning of value"},
 		{"toml", "(sites)\n",
-			"cannot read the file as toml: line 1, column 1: toml: invalid character at start of key: ("},
+			"cannot read the file as toml: line 1, column 1: invalid character at start of key: ("},
 	} {
 		_, err := Parse(strings.NewReader(tc.in), tc.format)
 		if !errors.Is(err, ErrUnreadable) || err.Error() != tc.want {
@@ -62,7 +62,7 @@ func TestOtherFormatHint(t *testing.T) {
 // error that follows, on that line or the next, says how YAML writes it.
 func TestYAMLEqualsHint(t *testing.T) {
 	_, err := Parse(strings.NewReader("sites:\n  - id = \"north-field\"\n    latitude: 47.5\n"), "yaml")
-	want := `cannot read the file as yaml: yaml: line 3: mapping values are not allowed in this context (line 2 writes id = "north-field", and YAML writes a key with a colon: id: "north-field")`
+	want := `cannot read the file as yaml: line 3: mapping values are not allowed in this context (line 2 writes id = "north-field", and YAML writes a key with a colon: id: "north-field")`
 	if !errors.Is(err, ErrUnreadable) || err.Error() != want {
 		t.Errorf("%v\nwant\n%s", err, want)
 	}
@@ -101,13 +101,13 @@ func TestEmptyAndHugeFiles(t *testing.T) {
 // unknown anchor), or a token it cannot start with.
 func TestYAMLSyntaxSlips(t *testing.T) {
 	for in, want := range map[string]string{
-		"sites:\n  - id: a\n    name: [North\n    latitude: 1\n":         "yaml: line 3: a list opened with [ is not closed with ] (its items are separated by commas)",
-		"a: 1\nb: {x: 1, y: 2\nc: [1, 2]\n":                              "yaml: line 2: a mapping opened with { is not closed with } (its items are separated by commas)",
-		"sites:\n  - id: a\n    name: 'O'Brien farm'\n    latitude: 1\n": "yaml: line 3: the text in quotes ends at its second ' (write a ' within it twice, 'O''Brien farm', or the text in double quotes)",
-		"sites:\n  - id: a\n    name: \"North Field\n    latitude: 1\n":  `yaml: line 3: the text in quotes that begins here is not closed with "`,
-		"service:\n  base_url: @example\n":                               `yaml: line 2: a value cannot begin with @ in YAML (write it in quotes: "@example")`,
-		"sites:\n  - id: %north\n":                                       `yaml: line 2: a value cannot begin with % in YAML (write it in quotes: "%north")`,
-		"sites:\n  - id: a\n    name: *farm\n":                           `yaml: line 3: *farm is a reference to an anchor &farm, which the file does not have (a text that begins with * is written in quotes: "*farm")`,
+		"sites:\n  - id: a\n    name: [North\n    latitude: 1\n":         "line 3: a list opened with [ is not closed with ] (its items are separated by commas)",
+		"a: 1\nb: {x: 1, y: 2\nc: [1, 2]\n":                              "line 2: a mapping opened with { is not closed with } (its items are separated by commas)",
+		"sites:\n  - id: a\n    name: 'O'Brien farm'\n    latitude: 1\n": "line 3: the text in quotes ends at its second ' (write a ' within it twice, 'O''Brien farm', or the text in double quotes)",
+		"sites:\n  - id: a\n    name: \"North Field\n    latitude: 1\n":  `line 3: the text in quotes that begins here is not closed with "`,
+		"service:\n  base_url: @example\n":                               `line 2: a value cannot begin with @ in YAML (write it in quotes: "@example")`,
+		"sites:\n  - id: %north\n":                                       `line 2: a value cannot begin with % in YAML (write it in quotes: "%north")`,
+		"sites:\n  - id: a\n    name: *farm\n":                           `line 3: *farm is a reference to an anchor &farm, which the file does not have (a text that begins with * is written in quotes: "*farm")`,
 	} {
 		_, err := Parse(strings.NewReader(in), "yaml")
 		if want = "cannot read the file as yaml: " + want; !errors.Is(err, ErrUnreadable) || err.Error() != want {

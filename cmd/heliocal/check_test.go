@@ -48,6 +48,20 @@ func TestConfigFromStdin(t *testing.T) {
 	if code != exitInput || !strings.Contains(errOut, "standard input:5: sites[0].latitude: 95: must be within -90..90") {
 		t.Errorf("exit %d, stderr:\n%s", code, errOut)
 	}
+	// A file that cannot be read is named file:line: too, as its
+	// problems are, not "--config farm.yaml: … line 4:"
+	code, _, errOut = runStdin(t, "sites:\n  - id: x\n\tlatitude: 1\n", "check", "-c", "-")
+	if want := "heliocal: standard input:3: cannot read the file as yaml: a tab in the indentation (YAML indents with spaces only)\n"; code != exitInput || errOut != want {
+		t.Errorf("exit %d, stderr:\n%s\nwant\n%s", code, errOut, want)
+	}
+	path := filepath.Join(t.TempDir(), "farm.json")
+	if err := os.WriteFile(path, []byte("{\n  \"sites\": [],\n}\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	code, _, errOut = runCLI(t, "check", "--config", path)
+	if want := "heliocal: " + path + ":3: cannot read the file as json: "; code != exitInput || !strings.HasPrefix(errOut, want) {
+		t.Errorf("exit %d, stderr:\n%s\nwant it to begin\n%s", code, errOut, want)
+	}
 	code, _, errOut = runStdin(t, "  \n", "events", "--config", "-", "--site", "x")
 	if code != exitInput || !strings.Contains(errOut, "standard input is empty") {
 		t.Errorf("empty input: exit %d, stderr: %s", code, errOut)

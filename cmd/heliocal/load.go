@@ -37,6 +37,10 @@ func loadConfig(g *globals) (*config.Config, config.Source, error) {
 		if errors.As(err, &ve) {
 			return nil, src, ve // each line already names the file, field and value
 		}
+		var se *config.SyntaxError
+		if errors.As(err, &se) && se.Source != "" {
+			return nil, src, inputError{se} // "farm.yaml:5: cannot read the file as yaml: …"
+		}
 		switch {
 		case g.configPath == stdinPath:
 			err = fmt.Errorf("--config -: %w", err)
@@ -67,6 +71,10 @@ func parseStdin(r io.Reader, env config.LookupEnv) (*config.Config, error) {
 	var ve *config.ValidationError
 	if errors.As(err, &ve) {
 		ve.Source = stdinSource
+	}
+	var se *config.SyntaxError
+	if errors.As(err, &se) {
+		se.Source = stdinSource
 	}
 	return cfg, err
 }

@@ -752,6 +752,47 @@ func checkAlarm(ps *problems, path string, a *Duration, override bool) {
 	}
 }
 
+// foreignNames are the names of the days of the week and of the months in
+// German, French, Spanish and Italian (and German's two-letter days, "Sa",
+// "So") that differ from the English ones the keys take, each with the
+// first of its list's English names ("sun" for a day, "jan" for a month)
+// and then its own English name: "samstag" is "sunsat".
+var foreignNames = func() map[string]string {
+	m := map[string]string{}
+	for en, names := range map[string]string{
+		"sun": "sonntag so dimanche domingo domenica",
+		"mon": "montag mo lundi lunes lunedì lunedi",
+		"tue": "dienstag di mardi martes martedì martedi",
+		"wed": "mittwoch mi mercredi miércoles miercoles mercoledì mercoledi",
+		"thu": "donnerstag do jeudi jueves giovedì giovedi",
+		"fri": "freitag fr vendredi viernes venerdì venerdi",
+		"sat": "samstag sonnabend sa samedi sábado sabado",
+	} {
+		for _, n := range strings.Fields(names) {
+			m[n] = "sun" + en
+		}
+	}
+	for en, names := range map[string]string{
+		"jan": "januar jänner janvier enero gennaio",
+		"feb": "februar février fevrier febrero febbraio",
+		"mar": "märz maerz mars marzo",
+		"apr": "avril abril aprile",
+		"may": "mai mayo maggio",
+		"jun": "juni juin junio giugno",
+		"jul": "juli juillet julio luglio",
+		"aug": "août aout agosto",
+		"sep": "septembre septiembre settembre",
+		"oct": "oktober octobre octubre ottobre",
+		"nov": "novembre noviembre",
+		"dec": "dezember décembre decembre diciembre dicembre",
+	} {
+		for _, n := range strings.Fields(names) {
+			m[n] = "jan" + en
+		}
+	}
+	return m
+}()
+
 func checkFilter(ps *problems, p string, weekdays, months, dates []string) {
 	for _, l := range []struct {
 		key, what, all      string
@@ -777,7 +818,9 @@ func checkFilter(ps *problems, p string, weekdays, months, dates []string) {
 			}
 			hint := l.all
 			if near := nearName(strings.ToLower(strings.TrimSpace(v)), l.names, l.full); near != "" {
-				hint = didYouMean(near)
+				hint = didYouMean(near) // "juli": "jul"
+			} else if en, ok := foreignNames[strings.ToLower(strings.TrimSpace(v))]; ok && l.names[0] == en[:3] {
+				hint = fmt.Sprintf("%s are named in English: write %q", l.key, en[3:]) // "Samstag": "sat"
 			} else if m, err := strconv.Atoi(strings.TrimSpace(v)); err == nil && l.key == "months" {
 				hint = monthNumberHint(int64(m), hint) // "8" for August
 			}

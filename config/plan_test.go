@@ -336,3 +336,31 @@ feeds:
 		t.Errorf("descriptions %q and %q, want them without the block's last line break", f.Description, f.Plans[0].Description)
 	}
 }
+
+// Days and months named in German, French, Spanish or Italian are told the
+// English name to write, a translation no spelling distance finds; a name
+// near an English one in spelling gets it as a did-you-mean.
+func TestForeignNames(t *testing.T) {
+	_, err := Parse(strings.NewReader(`
+sites: [{id: a, latitude: 47.5, longitude: 9.7, timezone: Europe/Zurich}]
+feeds:
+  - id: f
+    site: a
+    kinds: [{kind: sunset, weekdays: [Samstag, Di, dimanche], months: [Dezember, août, Juni]}]
+`), "yaml")
+	var got []string
+	for _, p := range problemsOf(t, err) {
+		got = append(got, p.Value+": "+p.Hint)
+	}
+	want := []string{
+		`Samstag: weekdays are named in English: write "sat"`,
+		`Di: weekdays are named in English: write "tue"`,
+		`dimanche: weekdays are named in English: write "sun"`,
+		`Dezember: did you mean "december"?`, // near in spelling: the English name
+		`août: months are named in English: write "aug"`,
+		`Juni: did you mean "jun"?`,
+	}
+	if !slices.Equal(got, want) {
+		t.Errorf("hints:\n%s\nwant\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
+	}
+}

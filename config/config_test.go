@@ -216,6 +216,9 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-kind-empty.yaml", "feeds[0].kinds[0].kind", `""`, "is empty: name a kind", "known kinds: sunrise, sunset", 0},
 		{"bad-plan-date-words.yaml", "feeds[0].plans[0].date", "every blue moon", `"every" takes one word, a weekday, "day" or a date MM-DD, not "blue moon"`, `"every friday"`, 0},
 		{"unknown-kind.yaml", "feeds[0].kinds[0]", "sunrize", "unknown kind", `did you mean "sunrise"?`, 0},
+		// "- sunrise:" is a mapping of one key: one problem, at the entry,
+		// not "kind: is required" and "sunrise: unknown key"
+		{"bad-kind-colon.yaml", "feeds[0].kinds[0]", `"sunrise:"`, "a kind with a colon after it is a mapping without a kind: key", "write - sunrise, without the colon", 0},
 		// typographic quotes are part of the text: the value without them,
 		// in straight quotes (YAML takes it without quotes too)
 		{"bad-typographic-quotes.yaml", "sites[0].timezone", "“Europe/Zurich”", "unknown time zone", `the quotes “ ” are typographic, part of the text: write "Europe/Zurich", in straight quotes, or without quotes`, 2},

@@ -271,6 +271,9 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 			problems[i].Line = lineOf(places, problems[i].Path)
 		}
 	}
+	if format == "yaml" {
+		problems = kindsWithColon(problems)
+	}
 	problems = slices.DeleteFunc(problems, func(p FieldError) bool { return writtenAs(p, problems) })
 	for i := range problems {
 		if open, inner, end, ok := typographicQuoted(problems[i].Value); ok {
@@ -1185,6 +1188,18 @@ func yamlAnchorMessage(msg string, data []byte) string {
 	return msg
 }
 
+// keysTogether reports whether a and b are two keys of one mapping of the
+// configuration (kind and offset, of a kinds entry), in any section.
+func keysTogether(a, b string) bool {
+	a, b = strings.ToLower(a), strings.ToLower(b)
+	for _, sec := range keySections {
+		if keys := keysAt(sec.path); a != b && slices.Contains(keys, a) && slices.Contains(keys, b) {
+			return true
+		}
+	}
+	return false
+}
+
 // yamlColonHint says why line n of a YAML document has a key where none
 // may be: its value holds ": " (`name: North: Field`), which YAML reads
 // as a second key, or it is indented deeper than the line above it, which
@@ -1194,6 +1209,15 @@ func yamlColonHint(lines [][]byte, n int) string {
 	t := strings.TrimLeft(l, " ")
 	body := strings.TrimSpace(strings.TrimPrefix(t, "- "))
 	if key, value, ok := strings.Cut(body, ": "); ok && strings.Contains(value, ": ") && !strings.ContainsAny(value[:1], "\"'[{") {
+		// "kind: sunset offset: -30m": two keys on one line, not a
+		// value with a colon, when the word before the colon is a key
+		first, second, _ := strings.Cut(value, ": ")
+		if words := strings.Fields(first); len(words) >= 2 && keysTogether(key, words[len(words)-1]) {
+			next := words[len(words)-1]
+			v := strings.Join(words[:len(words)-1], " ")
+			return fmt.Sprintf("two keys on one line: write %s: %s on a line of its own below %s: %s, or both in braces: {%s: %s, %s: %s}",
+				next, strings.TrimSpace(second), key, v, key, v, next, strings.TrimSpace(second))
+		}
 		return fmt.Sprintf("a value with \": \" in it goes in quotes: %s: %q", key, strings.TrimSpace(value))
 	}
 	for p := n - 1; p >= 1; p-- {
@@ -1207,6 +1231,15 @@ func yamlColonHint(lines [][]byte, n int) string {
 		}
 		if len(l)-len(t) > len(prev)-len(pt) && !strings.HasSuffix(pt, ":") && !strings.HasPrefix(pt, "- ") {
 			return fmt.Sprintf("the line is indented deeper than line %d above it", p)
+		}
+		if item, ok := strings.CutPrefix(pt, "- "); ok && !strings.HasSuffix(pt, ":") {
+			// "- kind: golden-hour" over "   offset: 10m": the keys of
+			// the entry line up with the first, after the dash
+			key, _, isKey := strings.Cut(strings.TrimLeft(item, " "), ": ")
+			col := len(prev) - len(strings.TrimLeft(item, " "))
+			if isKey && len(l)-len(t) > col && !strings.ContainsAny(key, " \"'[{") {
+				return fmt.Sprintf("the line is indented deeper than %s: on line %d above it: indent it by %d spaces, as %s: is", key, p, col, key)
+			}
 		}
 		break
 	}
@@ -1831,6 +1864,46 @@ func typographicQuoted(v string) (open, inner, end string, ok bool) {
 	}
 	inner = strings.TrimSpace(v[n : len(v)-m])
 	return string(o), inner, string(e), inner != ""
+}
+
+// kindsWithColon words a kinds entry written as a kind with a colon after
+// it ("- sunrise:"), which YAML reads as a mapping of the one key
+// "sunrise" without a value, as one problem at the entry that says to
+// drop the colon, in place of the entry's "kind: is required" and its
+// unknown key "sunrise".
+func kindsWithColon(problems []FieldError) []FieldError {
+	entries := map[string]string{} // a kinds entry's path: the kind written as its key
+	for _, p := range problems {
+		dot := strings.LastIndexByte(p.Path, '.')
+		if p.Msg != "unknown key" || dot < 0 || !strings.HasSuffix(p.Path[:dot], "]") || fieldKey(p.Path[:dot]) != "kinds" {
+			continue
+		}
+		if _, err := ParseKind(p.Path[dot+1:]); err == nil {
+			entries[p.Path[:dot]] = p.Path[dot+1:]
+		}
+	}
+	if len(entries) == 0 {
+		return problems
+	}
+	var out []FieldError
+	for _, p := range problems {
+		dot := strings.LastIndexByte(p.Path, '.')
+		if dot < 0 {
+			out = append(out, p)
+			continue
+		}
+		kind, ok := entries[p.Path[:dot]]
+		switch {
+		case ok && p.Msg == "unknown key" && p.Path[dot+1:] == kind:
+			out = append(out, FieldError{Path: p.Path[:dot], Value: strconv.Quote(kind + ":"), Msg: "a kind with a colon after it is a mapping without a kind: key",
+				Hint: fmt.Sprintf("write - %s, without the colon", kind), Line: p.Line})
+		case ok && p.Msg == "is required" && p.Path[dot+1:] == "kind":
+			// said by the problem above
+		default:
+			out = append(out, p)
+		}
+	}
+	return out
 }
 
 // writtenAs reports whether p says a key is required that an unknown key

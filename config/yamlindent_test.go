@@ -65,12 +65,20 @@ func TestYAMLMisalignedNotInValidFiles(t *testing.T) {
 
 // A key where none may be ("mapping values are not allowed in this
 // context") says why: a value holding ": ", which YAML reads as a second
-// key, or a line indented deeper than the one above it.
+// key, two keys of one mapping on one line, or a line indented deeper than
+// the one above it.
 func TestYAMLColonInValue(t *testing.T) {
 	for in, want := range map[string]string{
 		"sites:\n  - id: a\n    name: Ridge: north side\n":                   `yaml: line 3: mapping values are not allowed in this context (a value with ": " in it goes in quotes: name: "Ridge: north side")`,
 		"feeds:\n  - id: f\n    plans:\n      - title: Film: the night\n":    `yaml: line 4: mapping values are not allowed in this context (a value with ": " in it goes in quotes: title: "Film: the night")`,
 		"sites:\n  - id: a\n    latitude: 1\n     longitude: 2\nfeeds: []\n": "yaml: line 4: mapping values are not allowed in this context (the line is indented deeper than line 3 above it)",
+		// two keys of a kinds entry on one line: the key is not put in
+		// quotes in the value ("sunset offset: -30m" is no kind)
+		"feeds:\n  - id: f\n    kinds:\n      - kind: sunset offset: -30m\n": `yaml: line 4: mapping values are not allowed in this context (two keys on one line: write offset: -30m on a line of its own below kind: sunset, or both in braces: {kind: sunset, offset: -30m})`,
+		// a key of a list's entry indented deeper than the entry's first
+		"feeds:\n  - id: f\n    kinds:\n      - kind: golden-hour\n         offset: 10m\n": `yaml: line 5: mapping values are not allowed in this context (the line is indented deeper than kind: on line 4 above it: indent it by 8 spaces, as kind: is)`,
+		// a word that is a key of another section only is text
+		"sites:\n  - id: a\n    name: Ridge kinds: many\n": `yaml: line 3: mapping values are not allowed in this context (a value with ": " in it goes in quotes: name: "Ridge kinds: many")`,
 	} {
 		_, err := Parse(strings.NewReader(in), "yaml")
 		if !errors.Is(err, ErrUnreadable) || !strings.HasSuffix(err.Error(), want) {

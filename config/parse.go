@@ -208,6 +208,9 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		}
 	}
 
+	if format == "yaml" {
+		problems = append(problems, commentValues(data, places)...)
+	}
 	for i := range c.Sites {
 		problems = append(problems, c.Sites[i].resolveHorizon(fmt.Sprintf("sites[%d].horizon", i), dir)...)
 	}
@@ -1864,6 +1867,59 @@ func typographicQuoted(v string) (open, inner, end string, ok bool) {
 	}
 	inner = strings.TrimSpace(v[n : len(v)-m])
 	return string(o), inner, string(e), inner != ""
+}
+
+// commentValue is a YAML line whose key has no value but a comment that
+// begins right after its # ("color: #ff8800"): a value that was meant.
+var commentValue = sync.OnceValue(func() *regexp.Regexp {
+	return regexp.MustCompile(`^[ \t]*(?:-[ \t]+)?([A-Za-z_][A-Za-z0-9_]*):[ \t]+(#[^ \t#].*?)[ \t]*$`)
+})
+
+// commentValues are the keys of a YAML document data left empty by a value
+// that begins with #, which YAML reads as a comment ("color: #ff8800",
+// "label: #1 vents"), each named at its path (from places, the keys' lines).
+// A comment written as one, "# …" with a space, is no problem.
+func commentValues(data []byte, places map[string]keyPlace) []FieldError {
+	if !bytes.Contains(data, []byte(": #")) && !bytes.Contains(data, []byte(":\t#")) {
+		return nil
+	}
+	var out []FieldError
+	lines := bytes.Split(data, []byte("\n"))
+	for i, l := range lines {
+		n := i + 1
+		at := commentValue().FindSubmatchIndex(bytes.TrimRight(l, "\r"))
+		if at == nil || nestedBelow(lines[i+1:], at[2]) {
+			continue // "kinds: #sun" over "  - sunrise": a comment, and a value below it
+		}
+		m := [][]byte{nil, l[at[2]:at[3]], l[at[4]:at[5]]}
+		key, comment := strings.ToLower(string(m[1])), string(m[2])
+		for path, at := range places {
+			if at.line != n || path[strings.LastIndexAny(path, ".]")+1:] != key {
+				continue
+			}
+			hint := fmt.Sprintf("write it in quotes: %s: %q", m[1], comment)
+			if key == "color" {
+				hint = `color takes a CSS3 colour name, e.g. "steelblue", not a hex code`
+			}
+			out = append(out, FieldError{Path: path, Msg: fmt.Sprintf("is empty: %q after it is a comment in YAML", comment), Hint: hint})
+		}
+	}
+	return out
+}
+
+// nestedBelow reports whether the first line of lines with text, not a
+// comment, is a value of a key at column col of the line above them:
+// indented deeper, or a list's dash at the key's own column.
+func nestedBelow(lines [][]byte, col int) bool {
+	for _, l := range lines {
+		t := bytes.TrimLeft(l, " ")
+		if len(bytes.TrimSpace(t)) == 0 || t[0] == '#' {
+			continue
+		}
+		indent := len(l) - len(t)
+		return indent > col || (indent == col && t[0] == '-')
+	}
+	return false
 }
 
 // kindsWithColon words a kinds entry written as a kind with a colon after

@@ -1117,3 +1117,23 @@ func TestFeedIDHintsFollowed(t *testing.T) {
 		t.Errorf("the hints followed: %v", err)
 	}
 }
+
+// TestMissingFieldLineTOML: a field missing from a TOML [[sites]] or
+// [[feeds.kinds]] entry is named with the line of the entry's first key, as
+// in YAML and JSON with the entry's own line, and so in the order of the
+// file; it had no line and came first.
+func TestMissingFieldLineTOML(t *testing.T) {
+	_, err := loadTestdata(t, "missing-fields.toml")
+	if err == nil {
+		t.Fatal("no error")
+	}
+	lines := map[string]int{}
+	for _, p := range problemsOf(t, err) {
+		lines[p.Path] = p.Line
+	}
+	for path, want := range map[string]int{"sites[0].latitude": 3, "feeds[0].kinds[0].kind": 12} {
+		if got, ok := lines[path]; !ok || got != want {
+			t.Errorf("%s: line %d, want %d:\n%v", path, got, want, err)
+		}
+	}
+}

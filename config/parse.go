@@ -362,6 +362,19 @@ func lineOf(places map[string]keyPlace, path string) int {
 		if at, ok := places[p]; ok && at.line > 0 {
 			return at.line
 		}
+		if strings.HasSuffix(p, "]") {
+			// a TOML [[sites]] entry has no key of its own: the line of
+			// its first key, for a field missing from it
+			first := 0
+			for q, at := range places {
+				if at.line > 0 && (first == 0 || at.line < first) && strings.HasPrefix(q, p+".") {
+					first = at.line
+				}
+			}
+			if first > 0 {
+				return first
+			}
+		}
 		i := strings.LastIndexAny(p, ".[")
 		if i < 0 {
 			break

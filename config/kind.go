@@ -243,7 +243,17 @@ func ParseKind(s string) (Kind, error) {
 		}
 		dur, err := time.ParseDuration(param)
 		if err != nil {
-			return Kind{}, &KindError{Value: s, Msg: "malformed day length", Hint: fmt.Sprintf(`write hours and minutes with units, e.g. "%s:14h30m"`, d.name)}
+			hint := fmt.Sprintf(`write hours and minutes with units, e.g. "%s:14h30m"`, d.name)
+			joined := strings.Join(strings.Fields(param), "")             // "16 h"
+			if m := wordDuration().FindStringSubmatch(joined); m != nil { // "16 hours"
+				joined = m[1] + strings.ToLower(m[2][:1])
+			}
+			if near := d.name + ":" + joined; near != text {
+				if _, err := ParseKind(near); err == nil {
+					hint = didYouMean(near)
+				}
+			}
+			return Kind{}, &KindError{Value: s, Msg: "malformed day length", Hint: hint}
 		}
 		if !(dur > 0 && dur < 24*time.Hour) {
 			return Kind{}, &KindError{Value: s, Msg: "day length must be longer than 0 and shorter than 24h", Hint: fmt.Sprintf(`e.g. "%s:12h"`, d.name)}

@@ -1,6 +1,7 @@
 package config
 
 import (
+	"errors"
 	"slices"
 	"strconv"
 	"strings"
@@ -218,4 +219,22 @@ func FuzzParseKind(f *testing.F) {
 			t.Fatalf("ParseKind(%q) returned unknown name %q", s, k.Name)
 		}
 	})
+}
+
+// A day length written with a space or its unit in a word gets the kind to
+// write; one with no unit keeps the form as its hint.
+func TestDayLengthWrittenOtherwise(t *testing.T) {
+	for in, hint := range map[string]string{
+		"photoperiod:16 h":     `did you mean "photoperiod:16h"?`,
+		"photoperiod: 14h 30m": `did you mean "photoperiod:14h30m"?`,
+		"lighting:16 hours":    `did you mean "lighting:16h"?`,
+		"photoperiod:12":       `write hours and minutes with units, e.g. "photoperiod:14h30m"`,
+		"photoperiod:25 h":     `write hours and minutes with units, e.g. "photoperiod:14h30m"`,
+	} {
+		_, err := ParseKind(in)
+		var ke *KindError
+		if !errors.As(err, &ke) || ke.Msg != "malformed day length" || ke.Hint != hint {
+			t.Errorf("%q: %v, want malformed day length (%s)", in, err, hint)
+		}
+	}
 }

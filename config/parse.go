@@ -1635,7 +1635,13 @@ func decodeHook() mapstructure.DecodeHookFunc {
 				if fmt.Sprint(x) == "0" {
 					return Duration(0), nil
 				}
-				return nil, &valueError{Value: fmt.Sprint(x), Msg: "a duration needs a unit", Hint: fmt.Sprintf(`write e.g. "%vm" for minutes or "%vh" for hours`, x, x)}
+				hint := fmt.Sprintf(`write e.g. "%vm" for minutes or "%vh" for hours`, x, x)
+				if n, _ := strconv.ParseFloat(fmt.Sprint(x), 64); math.Abs(n) > MaxOffset.Hours() {
+					// 600 hours is beyond every duration's limit (an
+					// offset's 12h, an alarm's 7 days): minutes alone
+					hint = fmt.Sprintf(`write e.g. "%vm" for minutes`, x)
+				}
+				return nil, &valueError{Value: fmt.Sprint(x), Msg: "a duration needs a unit", Hint: hint}
 			}
 		}
 		if t, ok := data.(time.Time); ok && to.Kind() == reflect.String {

@@ -364,3 +364,23 @@ feeds:
 		t.Errorf("hints:\n%s\nwant\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
 	}
 }
+
+// A number where a duration belongs is told its unit; the hours are offered
+// only where they are within every duration's limit (an offset's 12h), as
+// "600h" would be refused once written.
+func TestDurationNumberHint(t *testing.T) {
+	for in, hint := range map[string]string{
+		"alarm: 10":  `write e.g. "10m" for minutes or "10h" for hours`,
+		"alarm: 600": `write e.g. "600m" for minutes`,
+	} {
+		_, err := Parse(strings.NewReader("sites: [{id: a, latitude: 1, longitude: 2, timezone: UTC}]\nfeeds:\n  - id: f\n    site: a\n    kinds: [sunrise]\n    "+in+"\n"), "yaml")
+		if err == nil {
+			t.Errorf("%s: no error", in)
+			continue
+		}
+		ps := problemsOf(t, err)
+		if len(ps) != 1 || ps[0].Msg != "a duration needs a unit" || ps[0].Hint != hint {
+			t.Errorf("%s: %v\nwant the hint %s", in, err, hint)
+		}
+	}
+}

@@ -283,6 +283,8 @@ func TestValidationErrors(t *testing.T) {
 		{"misplaced-key.yaml", "feeds[0].timezone", "timezone", "unknown key", "timezone is a key of a site; known keys here: id, title,", 0},
 		{"misplaced-alarm.yaml", "sites[0].alarm", "alarm", "unknown key", "alarm is a key of a feed, a kinds entry ({kind: …}) or a plan; known keys here: id, name,", 0},
 		{"bad-bool.yaml", "feeds[0].utc", `"yes"`, "must be true or false", "write true, without quotes", 0},
+		// yes written without quotes is text to YAML 1.2: no quotes to remove
+		{"bad-bool-plain.yaml", "feeds[0].utc", `"yes"`, "must be true or false", "write true", 0},
 		{"bad-days-fraction.yaml", "feeds[0].days_ahead", "36.5", "must be a whole number", "write 36 or 37", 0},
 		{"duplicate-kind.yaml", "feeds[0].kinds[1]", "june-solstice", `"june-solstice" listed twice, also in "seasons" at feeds[0].kinds[0]`, "", 0},
 		{"duplicate-golden-hour.yaml", "feeds[0].kinds[1]", "golden-hour", `"golden-hour" listed twice, also as feeds[0].kinds[0]`, `"sun-band:-4..8"`, 0},
@@ -1135,5 +1137,14 @@ func TestMissingFieldLineTOML(t *testing.T) {
 		if got, ok := lines[path]; !ok || got != want {
 			t.Errorf("%s: line %d, want %d:\n%v", path, got, want, err)
 		}
+	}
+}
+
+// TestBoolHintPlain: yes written without quotes is not told to be written
+// without quotes.
+func TestBoolHintPlain(t *testing.T) {
+	_, err := loadTestdata(t, "bad-bool-plain.yaml")
+	if err == nil || strings.Contains(err.Error(), "without quotes") || !strings.Contains(err.Error(), "(write true)") {
+		t.Errorf("%v", err)
 	}
 }

@@ -194,6 +194,10 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 				(n.Tag == "!!int" || n.Tag == "!!float") && n.Style == 0 && n.Value != problems[i].Value {
 				problems[i].Value = n.Value // 1e3 as written, not the 1000 it is
 			}
+			if n := yamlScalarAt(written, problems[i].Path); n != nil && n.Style == 0 && strings.HasSuffix(problems[i].Hint, ", without quotes") {
+				// utc: yes, written without quotes, is text to YAML 1.2
+				problems[i].Hint = strings.TrimSuffix(problems[i].Hint, ", without quotes")
+			}
 			if problems[i].Value == "" { // a mapping or a list given as one value: name it
 				problems[i].Value = rawAt(settings, problems[i].Path)
 				if problems[i].Msg == "must be a list, not a mapping" && problems[i].Hint == "" {

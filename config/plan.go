@@ -759,7 +759,7 @@ func checkAlarm(ps *problems, path string, a *Duration, override bool) {
 // and then its own English name: "samstag" is "sunsat".
 var foreignNames = func() map[string]string {
 	m := map[string]string{}
-	for en, names := range map[string]string{
+	for first, lists := range map[string]map[string]string{"sun": {
 		"sun": "sonntag so dimanche domingo domenica",
 		"mon": "montag mo lundi lunes lunedì lunedi",
 		"tue": "dienstag di mardi martes martedì martedi",
@@ -767,12 +767,7 @@ var foreignNames = func() map[string]string {
 		"thu": "donnerstag do jeudi jueves giovedì giovedi",
 		"fri": "freitag fr vendredi viernes venerdì venerdi",
 		"sat": "samstag sonnabend sa samedi sábado sabado",
-	} {
-		for _, n := range strings.Fields(names) {
-			m[n] = "sun" + en
-		}
-	}
-	for en, names := range map[string]string{
+	}, "jan": {
 		"jan": "januar jänner janvier enero gennaio",
 		"feb": "februar février fevrier febrero febbraio",
 		"mar": "märz maerz mars marzo",
@@ -785,9 +780,11 @@ var foreignNames = func() map[string]string {
 		"oct": "oktober octobre octubre ottobre",
 		"nov": "novembre noviembre",
 		"dec": "dezember décembre decembre diciembre dicembre",
-	} {
-		for _, n := range strings.Fields(names) {
-			m[n] = "jan" + en
+	}} {
+		for en, names := range lists {
+			for _, n := range strings.Fields(names) {
+				m[n] = first + en
+			}
 		}
 	}
 	return m

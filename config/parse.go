@@ -190,11 +190,12 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 			written = yamlDocument(data)
 		}
 		for i := range problems {
-			if n := yamlScalarAt(written, problems[i].Path); n != nil && strings.HasSuffix(problems[i].Msg, "not a number") &&
+			n := yamlScalarAt(written, problems[i].Path)
+			if n != nil && strings.HasSuffix(problems[i].Msg, "not a number") &&
 				(n.Tag == "!!int" || n.Tag == "!!float") && n.Style == 0 && n.Value != problems[i].Value {
 				problems[i].Value = n.Value // 1e3 as written, not the 1000 it is
 			}
-			if n := yamlScalarAt(written, problems[i].Path); n != nil && n.Style == 0 && strings.HasSuffix(problems[i].Hint, ", without quotes") {
+			if n != nil && n.Style == 0 && strings.HasSuffix(problems[i].Hint, ", without quotes") {
 				// utc: yes, written without quotes, is text to YAML 1.2
 				problems[i].Hint = strings.TrimSuffix(problems[i].Hint, ", without quotes")
 			}

@@ -368,12 +368,7 @@ func skipped(d time.Time, loc *time.Location) bool {
 // gone reports whether the local date d (00:00 UTC, first-2..last+1) does
 // not exist in the site's zone (missingDates, found once).
 func (c *collector) gone(d time.Time) bool {
-	for _, g := range c.missing() {
-		if g.Equal(d) {
-			return true
-		}
-	}
-	return false
+	return slices.ContainsFunc(c.missing(), d.Equal)
 }
 
 // missing returns the dates first-2..last+1 that do not exist in the

@@ -1,6 +1,7 @@
 package serve
 
 import (
+	"bytes"
 	"context"
 	"errors"
 	"fmt"
@@ -269,7 +270,7 @@ func TestScheduledRefresh(t *testing.T) {
 // refresh or a refused reload: an operator alerting on errors is not paged
 // by a restart. It is not counted among the failures either.
 func TestShutdownStopsBuildQuietly(t *testing.T) {
-	var logged strings.Builder
+	var logged bytes.Buffer
 	var mu sync.Mutex
 	entered := make(chan struct{}, 2)
 	reg := NewRegistry()
@@ -279,7 +280,7 @@ func TestShutdownStopsBuildQuietly(t *testing.T) {
 			<-ctx.Done()
 			return nil, fmt.Errorf("publish: %w", ctx.Err())
 		},
-		Logger:  slog.New(slog.NewTextHandler(&lockedBuilder{b: &logged, mu: &mu}, nil)),
+		Logger:  slog.New(slog.NewTextHandler(&lockedBuf{b: &logged, mu: &mu}, nil)),
 		Metrics: reg,
 	})
 	if err != nil {
@@ -321,15 +322,4 @@ func TestShutdownStopsBuildQuietly(t *testing.T) {
 			t.Errorf("/metrics lacks %s", want)
 		}
 	}
-}
-
-type lockedBuilder struct {
-	b  *strings.Builder
-	mu *sync.Mutex
-}
-
-func (l *lockedBuilder) Write(p []byte) (int, error) {
-	l.mu.Lock()
-	defer l.mu.Unlock()
-	return l.b.Write(p)
 }

@@ -31,6 +31,22 @@ func fleetBundle(tb testing.TB, gzip GzipFunc) (name string, data []byte, b *pub
 	return name, whole.File(name).Data, b
 }
 
+// heldForm is a bundle of the fleet feed of fleetBundle held in one form.
+type heldForm struct {
+	form   string // "gzip": in its gzip form alone, as serve holds a feed; "whole": its bytes
+	bundle *publish.Bundle
+}
+
+// fleetForms is fleetBundle's feed, its name and bytes, and the bundles
+// that hold it in its gzip form, as serve holds a configured feed, and
+// whole, as it held one before.
+func fleetForms(tb testing.TB) (name string, data []byte, forms []heldForm) {
+	tb.Helper()
+	name, data, held := fleetBundle(tb, feedGzip(nil))
+	whole := &publish.Bundle{Files: []publish.File{file(name, "", data)}}
+	return name, data, []heldForm{{"gzip", held}, {"whole", whole}}
+}
+
 // firstFeed is the file name of the first feed of the configuration
 // yamlText and the source that builds it, as of 20 March 2027.
 func firstFeed(tb testing.TB, yamlText string) (name string, srcs []publish.Source) {
@@ -52,12 +68,8 @@ func firstFeed(tb testing.TB, yamlText string) (name string, srcs []publish.Sour
 // (about 1.1 MB): held in its gzip form and inflated into the response, as
 // serve holds a configured feed, and held whole, as it held one before.
 func BenchmarkServeFeedIdentity(b *testing.B) {
-	name, data, held := fleetBundle(b, feedGzip(nil))
-	whole := &publish.Bundle{Files: []publish.File{file(name, "", data)}}
-	for _, tc := range []struct {
-		form   string
-		bundle *publish.Bundle
-	}{{"gzip", held}, {"whole", whole}} {
+	name, data, forms := fleetForms(b)
+	for _, tc := range forms {
 		b.Run("held="+tc.form, func(b *testing.B) {
 			s, _ := newTestServer(b, Options{Build: func(context.Context, GzipFunc) (*publish.Bundle, error) { return tc.bundle, nil }})
 			h := s.Handler()
@@ -85,12 +97,8 @@ func BenchmarkServeFeedIdentity(b *testing.B) {
 // feed) and of its last 100 bytes (a Range: 206), held in its gzip form
 // and held whole.
 func BenchmarkServeFeedIdentityRevalidated(b *testing.B) {
-	name, data, held := fleetBundle(b, feedGzip(nil))
-	whole := &publish.Bundle{Files: []publish.File{file(name, "", data)}}
-	for _, tc := range []struct {
-		form   string
-		bundle *publish.Bundle
-	}{{"gzip", held}, {"whole", whole}} {
+	name, data, forms := fleetForms(b)
+	for _, tc := range forms {
 		for _, rq := range []struct {
 			what, header, value string
 			code, n             int

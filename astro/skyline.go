@@ -48,8 +48,8 @@ type Skyline []SkyPoint
 // 0..360 (360 is 0) and distinct, altitudes within −5..45°. A single point
 // is a skyline at one altitude in every direction.
 func NewSkyline(points []SkyPoint) (Skyline, error) {
-	if len(points) == 0 {
-		return nil, &InputError{"skyline points", 0, "needs at least one [azimuth, altitude] point"}
+	if err := Skyline(points).check(); err != nil {
+		return nil, err
 	}
 	s := make(Skyline, len(points))
 	for i, p := range points {
@@ -279,8 +279,8 @@ func (e *MoonEphemeris) moonSkyline(o Observer, st *site, sky Skyline, a, b floa
 	return skylineCrossings(e.moon, st, lo, hi, f, a, b)
 }
 
-// check returns an *InputError for a skyline without points, which every
-// skyline query refuses.
+// check returns an *InputError for a skyline without points, which
+// NewSkyline and every skyline query refuse.
 func (s Skyline) check() error {
 	if len(s) == 0 {
 		return &InputError{"skyline points", 0, "needs at least one [azimuth, altitude] point"}

@@ -61,6 +61,10 @@ func topocentric(o Observer, e Epoch, ra, dec, dist, eqEq float64) topo {
 // refractedAltitude applies Bennett's formula, as RiseSetAltitude takes it.
 const bennettMinAltitude = -1.0
 
+// bennettMinRefraction is the standard refraction (arcminutes) at
+// bennettMinAltitude.
+var bennettMinRefraction, _ = bennett(bennettMinAltitude)
+
 // bennett returns the standard refraction (arcminutes) at apparent altitude
 // a (degrees, ≥ bennettMinAltitude): Bennett's formula
 // R = 1′/tan(a + 7.31/(a + 4.4)) (Meeus, Astronomical Algorithms 2nd ed.,
@@ -85,8 +89,7 @@ func bennett(a float64) (r, dr float64) {
 // altitude whose apparent altitude is −1° (−1.83° in the standard air),
 // where the formula stops, it returns h: no refraction.
 func refractedAltitude(h, f float64) float64 {
-	rMin, _ := bennett(bennettMinAltitude)
-	if h < bennettMinAltitude-f*rMin/60 {
+	if h < bennettMinAltitude-f*bennettMinRefraction/60 {
 		return h
 	}
 	r, _ := bennett(max(h, bennettMinAltitude))

@@ -293,9 +293,10 @@ func TestSunFromAgainstEphemeris(t *testing.T) {
 // TestRefractedAltitude checks the refraction SunFrom adds: the apparent
 // altitude a it returns for a geometric h satisfies h = a − f·R(a) with
 // Bennett's R (Meeus, Astronomical Algorithms 2nd ed., ch. 16) to 1e-9°;
-// the refraction at the apparent horizon is 34.5′ in the standard air, the
-// figure RiseSetAltitude's doc gives for the formula, and about 1′ at 45°
-// (common practice: 58″–60″); it grows with the RefractionFactor; it stops
+// the refraction at the apparent horizon is 34.5′ in the standard air
+// (Bennett's formula worked by hand: 1′/tan(7.31°/4.4) = 34.48′; the
+// horizon's 34′ to 35′ of the almanacs is common practice), and about 1′ at
+// 45° (common practice: 58″–60″); it grows with the RefractionFactor; it stops
 // at an apparent −1°; it never decreases the altitude and never lifts it
 // past the zenith.
 func TestRefractedAltitude(t *testing.T) {

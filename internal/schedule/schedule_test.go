@@ -130,24 +130,33 @@ func TestSkipsWhileRunningAndStopWaits(t *testing.T) {
 	})
 }
 
+// runningEveryMinute is a scheduler of fn every minute in UTC, logging to
+// log (nil: the default), started with ctx and in the bubble's time a
+// minute on, its first run under way. Call it inside synctest.Test.
+func runningEveryMinute(t *testing.T, ctx context.Context, fn func(context.Context) error, log *slog.Logger) *Scheduler {
+	t.Helper()
+	s, err := New(fn, Options{Spec: "@every 1m", Location: time.UTC, Logger: log})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s.Start(ctx)
+	time.Sleep(61 * time.Second)
+	synctest.Wait()
+	return s
+}
+
 func TestStopBoundedCancelsRun(t *testing.T) {
 	synctest.Test(t, func(t *testing.T) {
 		cancelled := make(chan struct{})
-		s, err := New(func(ctx context.Context) error {
+		s := runningEveryMinute(t, t.Context(), func(ctx context.Context) error {
 			<-ctx.Done()
 			close(cancelled)
 			return ctx.Err()
-		}, Options{Spec: "@every 1m", Location: time.UTC})
-		if err != nil {
-			t.Fatal(err)
-		}
-		s.Start(t.Context())
-		time.Sleep(61 * time.Second)
-		synctest.Wait()
+		}, nil)
 		ctx, cancel := context.WithTimeout(context.Background(), 10*time.Second)
 		defer cancel()
 		begin := time.Now()
-		err = s.Stop(ctx)
+		err := s.Stop(ctx)
 		if !errors.Is(err, context.DeadlineExceeded) {
 			t.Fatalf("Stop = %v, want deadline exceeded", err)
 		}
@@ -162,15 +171,12 @@ func TestStartContextCancelDoesNotAbortRun(t *testing.T) {
 	synctest.Test(t, func(t *testing.T) {
 		release := make(chan struct{})
 		var runErr atomic.Value
-		s, _ := New(func(ctx context.Context) error {
+		ctx, cancel := context.WithCancel(t.Context())
+		s := runningEveryMinute(t, ctx, func(ctx context.Context) error {
 			<-release
 			runErr.Store(errors.Join(ctx.Err()))
 			return nil
-		}, Options{Spec: "@every 1m", Location: time.UTC})
-		ctx, cancel := context.WithCancel(t.Context())
-		s.Start(ctx)
-		time.Sleep(61 * time.Second)
-		synctest.Wait()
+		}, nil)
 		cancel() // the server is shutting down: the run must be allowed to finish
 		close(release)
 		if err := s.Stop(context.Background()); err != nil {
@@ -501,16 +507,10 @@ func TestStoppedRunIsNotAFailure(t *testing.T) {
 		var buf bytes.Buffer
 		var mu sync.Mutex
 		log := slog.New(slog.NewTextHandler(&lockedWriter{w: &buf, mu: &mu}, nil))
-		s, err := New(func(ctx context.Context) error {
+		s := runningEveryMinute(t, t.Context(), func(ctx context.Context) error {
 			<-ctx.Done()
 			return fmt.Errorf("publish: %w", ctx.Err())
-		}, Options{Spec: "@every 1m", Location: time.UTC, Logger: log})
-		if err != nil {
-			t.Fatal(err)
-		}
-		s.Start(t.Context())
-		time.Sleep(61 * time.Second)
-		synctest.Wait()
+		}, log)
 		ctx, cancel := context.WithTimeout(context.Background(), 10*time.Second)
 		defer cancel()
 		s.Stop(ctx)

@@ -147,7 +147,8 @@ func BenchmarkSunFrom(b *testing.B) {
 		}
 	})
 	b.Run("ephemeris-month", func(b *testing.B) {
-		e, err := NewEphemeris(from, from.AddDate(0, 1, 0))
+		end := from.AddDate(0, 1, 0)
+		e, err := NewEphemeris(from, end)
 		if err != nil {
 			b.Fatal(err)
 		}
@@ -160,7 +161,7 @@ func BenchmarkSunFrom(b *testing.B) {
 			if _, err := e.SunAzimuth(o, t); err != nil {
 				b.Fatal(err)
 			}
-			if t = t.Add(time.Minute); t.After(from.AddDate(0, 1, 0)) {
+			if t = t.Add(time.Minute); t.After(end) {
 				t = from
 			}
 		}

@@ -928,9 +928,9 @@ func tomlSlip(msg string, data []byte, row int) string {
 	case strings.HasSuffix(msg, "invalid character at start of key: }"):
 		return at("TOML has no comma after the last item of a mapping in braces {…}")
 	case strings.HasSuffix(msg, "array elements must be separated by commas"):
+		lines := bytes.Split(data, []byte("\n")) // split once: the walk back is not quadratic in a long file
 		for n := row - 1; n >= 1; n-- {
-			p, _ := lineAt(data, n)
-			if pt := strings.TrimSpace(string(p)); strings.Count(pt, "[") > strings.Count(pt, "]") && strings.Contains(pt, "=") {
+			if pt := strings.TrimSpace(string(lines[n-1])); strings.Count(pt, "[") > strings.Count(pt, "]") && strings.Contains(pt, "=") {
 				return fmt.Sprintf("line %d: %s: the list opened with [ is not closed with ] (its items are separated by commas)", n, strings.TrimRight(pt, "\r"))
 			}
 		}

@@ -1908,17 +1908,26 @@ func commentValues(data []byte, places map[string]keyPlace) []FieldError {
 		return nil
 	}
 	var out []FieldError
+	var onLine map[int][]string // the paths of places by line, gathered at the first key found
 	lines := bytes.Split(data, []byte("\n"))
 	for i, l := range lines {
-		n := i + 1
+		if bytes.IndexByte(l, '#') < 0 {
+			continue
+		}
 		at := commentValue().FindSubmatchIndex(bytes.TrimRight(l, "\r"))
 		if at == nil || nestedBelow(lines[i+1:], at[2]) {
 			continue // "kinds: #sun" over "  - sunrise": a comment, and a value below it
 		}
 		m := [][]byte{nil, l[at[2]:at[3]], l[at[4]:at[5]]}
 		key, comment := strings.ToLower(string(m[1])), string(m[2])
-		for path, at := range places {
-			if at.line != n || path[strings.LastIndexAny(path, ".]")+1:] != key {
+		if onLine == nil {
+			onLine = map[int][]string{}
+			for path, at := range places {
+				onLine[at.line] = append(onLine[at.line], path)
+			}
+		}
+		for _, path := range onLine[i+1] {
+			if path[strings.LastIndexAny(path, ".]")+1:] != key {
 				continue
 			}
 			hint := fmt.Sprintf("write it in quotes: %s: %q", m[1], comment)

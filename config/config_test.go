@@ -35,6 +35,16 @@ func problemsOf(t *testing.T, err error) []FieldError {
 	return verr.Problems
 }
 
+// problemsByPath is each problem of err, a *ValidationError, by its path.
+func problemsByPath(t *testing.T, err error) map[string]FieldError {
+	t.Helper()
+	m := map[string]FieldError{}
+	for _, p := range problemsOf(t, err) {
+		m[p.Path] = p
+	}
+	return m
+}
+
 // problemLines is each problem of err, a *ValidationError, as printed.
 func problemLines(t *testing.T, err error) []string {
 	t.Helper()
@@ -1049,12 +1059,9 @@ func TestShortKeys(t *testing.T) {
 	if err == nil {
 		t.Fatal("no error")
 	}
-	hints := map[string]string{}
-	for _, p := range problemsOf(t, err) {
-		hints[p.Path] = p.Hint
-	}
+	problems := problemsByPath(t, err)
 	for short, key := range map[string]string{"lat": "latitude", "lon": "longitude", "elev": "elevation", "tz": "timezone"} {
-		if got, want := hints["sites[0]."+short], `did you mean "`+key+`"?`; got != want {
+		if got, want := problems["sites[0]."+short].Hint, `did you mean "`+key+`"?`; got != want {
 			t.Errorf("sites[0].%s: hint %q, want %q", short, got, want)
 		}
 	}
@@ -1129,13 +1136,10 @@ func TestMissingFieldLineTOML(t *testing.T) {
 	if err == nil {
 		t.Fatal("no error")
 	}
-	lines := map[string]int{}
-	for _, p := range problemsOf(t, err) {
-		lines[p.Path] = p.Line
-	}
+	problems := problemsByPath(t, err)
 	for path, want := range map[string]int{"sites[0].latitude": 3, "feeds[0].kinds[0].kind": 12} {
-		if got, ok := lines[path]; !ok || got != want {
-			t.Errorf("%s: line %d, want %d:\n%v", path, got, want, err)
+		if p, ok := problems[path]; !ok || p.Line != want {
+			t.Errorf("%s: line %d, want %d:\n%v", path, p.Line, want, err)
 		}
 	}
 }

@@ -15,10 +15,7 @@ func TestJSONNumberShownAsWritten(t *testing.T) {
 	if err == nil {
 		t.Fatal("no error")
 	}
-	got := map[string]string{}
-	for _, p := range problemsOf(t, err) {
-		got[p.Path] = p.Value
-	}
+	got := problemsByPath(t, err)
 	for path, want := range map[string]string{
 		"sites[0].name":              "1234567",
 		"feeds[0].kinds[0].dates[0]": "20270612",
@@ -26,8 +23,8 @@ func TestJSONNumberShownAsWritten(t *testing.T) {
 		"feeds[0].kinds[0].dates[2]": "-42",
 		"feeds[0].kinds[0].dates[3]": "1e+300",
 	} {
-		if got[path] != want {
-			t.Errorf("%s: value %q, want %q (all: %q)", path, got[path], want, got)
+		if got[path].Value != want {
+			t.Errorf("%s: value %q, want %q\n%v", path, got[path].Value, want, err)
 		}
 	}
 }

@@ -188,13 +188,10 @@ func TestProblemLines(t *testing.T) {
 			map[string]string{"HELIOCAL_LISTEN": "nowhere"}, map[string]int{"service.listen": 0, "sites[0].latitude": 4}},
 	} {
 		_, err := ParseEnv(strings.NewReader(tc.in), tc.format, func(k string) (string, bool) { v, ok := tc.env[k]; return v, ok })
-		got := map[string]int{}
-		for _, p := range problemsOf(t, err) {
-			got[p.Path] = p.Line
-		}
+		got := problemsByPath(t, err)
 		for path, line := range tc.want {
-			if l, ok := got[path]; !ok || l != line {
-				t.Errorf("%s: %s on line %d (found: %v), want line %d\n%v", tc.format, path, l, ok, line, err)
+			if p, ok := got[path]; !ok || p.Line != line {
+				t.Errorf("%s: %s on line %d (found: %v), want line %d\n%v", tc.format, path, p.Line, ok, line, err)
 			}
 		}
 	}

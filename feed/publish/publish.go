@@ -483,7 +483,7 @@ func Publish(ctx context.Context, srcs []Source, opts RenderOptions, w *Writer) 
 		if err = r.stage(ctx); err != nil && ctx.Err() != nil && errors.Is(err, ctx.Err()) {
 			// interrupted (SIGINT, SIGTERM) while computing: staging
 			// replaces nothing, and the error says so
-			err = fmt.Errorf("publish: stopped before any file was replaced: %w; %s", ctx.Err(), nothingChanged)
+			err = unchanged(fmt.Errorf("publish: stopped before any file was replaced: %w", ctx.Err()))
 		}
 	}
 	if err == nil {

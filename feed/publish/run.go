@@ -86,7 +86,7 @@ func (r *publishRun) stage(ctx context.Context) error {
 			// staging replaces nothing: say so, as a failed commit does,
 			// to whoever finds the disk full or a directory where a feed
 			// goes
-			err = fmt.Errorf("%w; %s", err, nothingChanged)
+			err = unchanged(err)
 		}
 		return err
 	}
@@ -154,21 +154,21 @@ func (w *Writer) stageFile(src Source, f File) (stagedFeed, error) {
 func (r *publishRun) commit(ctx context.Context) (err error) {
 	unlock, err := r.w.lockDir(ctx)
 	if err != nil {
-		return fmt.Errorf("%w; %s", err, nothingChanged)
+		return unchanged(err)
 	}
 	defer unlock()
 	r.w.removePrevs()
 	// until the undo log begins, nothing published is changed: a failure
 	// says so, as one while staging does
 	if err := r.restage(ctx); err != nil {
-		return fmt.Errorf("%w; %s", err, nothingChanged)
+		return unchanged(err)
 	}
 	sets, err := r.w.scanManifests()
 	if err != nil {
-		return fmt.Errorf("%w; %s", err, nothingChanged)
+		return unchanged(err)
 	}
 	if err := r.w.checkMix(sets, r.digest, r.opts.Shard); err != nil {
-		return fmt.Errorf("%w; %s", err, nothingChanged)
+		return unchanged(err)
 	}
 	r.w.beginUndo()
 	defer func() { err = r.w.endUndo(err) }()

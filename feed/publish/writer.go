@@ -572,12 +572,16 @@ func (w *Writer) endUndo(err error) error {
 	if serr := syncDir(w.Dir); serr != nil {
 		return fmt.Errorf("%w; the files published before are put back, but %w", err, serr)
 	}
-	return fmt.Errorf("%w; %s", err, nothingChanged)
+	return unchanged(err)
 }
 
 // nothingChanged ends the error of a publish that failed without changing
 // any published file.
 const nothingChanged = "nothing was changed: the files published before are as they were"
+
+// unchanged is err, of a publish that failed without changing any
+// published file, ended with nothingChanged.
+func unchanged(err error) error { return fmt.Errorf("%w; %s", err, nothingChanged) }
 
 // diskFull reports whether err is a full disk or an exhausted quota
 // (ENOSPC, EDQUOT: errDiskFull in sys_unix.go).

@@ -493,11 +493,12 @@ func (s *Server) runBuild(ctx context.Context, build BuildFunc) (snap *snapshot,
 // Run builds the feeds, serves HTTP on ln and refreshes on schedule until ctx
 // is cancelled; then it shuts down gracefully: it stops accepting, lets
 // in-flight requests and a running scheduled refresh finish within
-// Options.ShutdownTimeout, stops the first build at once, and returns nil. If the first build fails the
-// server still answers (503 on /healthz and the feed routes) and retries with
-// back-off until a build succeeds; but if it fails because a feed is over
-// its size limit under service.oversize: fail (*publish.OversizeError),
-// which no retry mends, Run shuts down the same way and returns that error.
+// Options.ShutdownTimeout, stops the first build at once, and returns nil.
+// If the first build fails the server still answers (503 on /healthz and
+// the feed routes) and retries with back-off until a build succeeds; but if
+// it fails because a feed is over its size limit under service.oversize:
+// fail (*publish.OversizeError), which no retry mends, Run shuts down the
+// same way and returns that error.
 // Run closes ln. A Server runs once.
 func (s *Server) Run(ctx context.Context, ln net.Listener) error {
 	s.runMu.Lock()

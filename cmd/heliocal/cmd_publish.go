@@ -230,13 +230,13 @@ func brokenLink(field, out, p string, statErr error) error {
 // the publish tried first ("open public/.farm-sun.ics.tmp-81…: permission
 // denied"); a file already there that the user may not open (a lock file
 // or a feed of another user, in a directory the user may write to) is
-// named with the directory; a full disk or an exhausted quota is named with the file that
-// found it so, as the user knows it ("farm-sun.ics"). What the publish says
-// of the files it left (the writer keeps nothing half-written: "nothing was
-// changed: …") follows. It stays a
-// run-time failure (exit 1): out was checked to be a directory, or to be one
-// that can be created, before (checkOutDir). Other errors are returned as
-// they are.
+// named with the directory; a full disk or an exhausted quota is named
+// with the file that found it so, as the user knows it ("farm-sun.ics").
+// What the publish says of the files it left (the writer keeps nothing
+// half-written: "nothing was changed: …") follows. It stays a run-time
+// failure (exit 1): out was checked to be a directory, or to be one that
+// can be created, before (checkOutDir). Other errors are returned as they
+// are.
 func outDirFailed(field, out string, err error) error {
 	if full := (*publish.DiskFullError)(nil); errors.As(err, &full) {
 		_, tail, _ := strings.Cut(err.Error(), full.Error())

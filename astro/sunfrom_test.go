@@ -102,7 +102,8 @@ func TestSunFromNOAA(t *testing.T) {
 // UTC instant, then ephem.Sun().compute(observer): altitude and azimuth with
 // pressure = 0 (no refraction: topocentric geometric, as Altitude), and the
 // altitude again with pressure = 1010, temp = 10 (the almanacs' air,
-// RefractionFactor 1); ephem.delta_t(date) is its ΔT.
+// RefractionFactor 1); ephem.delta_t(date) is its ΔT. The rows are those
+// tools/pyephem-checks/values.py prints (sun_from).
 //
 // The geometric altitude and the azimuth (scaled by the cosine of the
 // altitude: its arc on the sky) are held within 1″ when SunFrom's

@@ -16,7 +16,8 @@ TestEventsAzimuth; feed/plan_test.go TestPlanEndFirstAfterStart,
 TestPlanDateOnlyAnchor, TestPlanEveningStart and TestPlanEndClockPassed; feed/lighting_test.go
 TestLightingMinimumNamesTheDroppedPeriod, TestLightingUnderAMinute and TestLightingEntries;
 cmd/heliocal/preview_lamps_test.go TestPreviewLampsNoteAsFed and
-TestPreviewLampsNoteSubscriptionEnd).
+TestPreviewLampsNoteSubscriptionEnd; astro/sunfrom_test.go
+TestSunFromPyEphem).
 
 Definitions, matched to heliocal's:
   * sunrise/sunset: the Sun's centre at -0.8333 deg (upper limb 16' plus 34'
@@ -42,6 +43,7 @@ horizon (78.2 N, sunset near midnight: about 0.7 deg per hour).
 """
 
 import datetime
+import math
 from zoneinfo import ZoneInfo
 
 import ephem
@@ -305,6 +307,27 @@ def no_lamps_stretches():
             name, zone, hours, first, last, last + day))
 
 
+def sun_from():
+    print("# the Sun from a site at one instant (astro/sunfrom_test.go TestSunFromPyEphem): altitude and")
+    print("# azimuth with pressure 0, altitude with pressure 1010 hPa, temp 10 C; PyEphem's Delta T, s")
+    for lat, lon, elev, when in (
+            (40, -105, 0, "2010/6/21 19:00:00"), (40, -105, 0, "2010/6/21 07:06:00"),
+            (51.4769, -0.0005, 0, "1850/3/1 10:00:00"), (48.2, 16.4, 0, "2030/12/21 07:50:00"),
+            (-33.9, 151.2, 0, "2041/3/15 02:00:00"), (69.7, 19.0, 500, "2035/6/21 23:00:00"),
+            (0, 0, 0, "2100/9/23 12:00:00"), (-77.8, 166.7, 3000, "2060/1/10 05:00:00"),
+            (27.98, 86.92, 8000, "2150/5/20 03:30:00")):
+        o = ephem.Observer()
+        o.lat, o.lon, o.elevation, o.date = str(lat), str(lon), elev, when
+        o.pressure = 0
+        s = ephem.Sun()
+        s.compute(o)
+        alt, az = math.degrees(s.alt), math.degrees(s.az)
+        o.pressure, o.temp = 1010, 10
+        s.compute(o)
+        print("%g, %g, %g m, %s UT: altitude %.6f, refracted %.6f, azimuth %.6f; delta T %.3f" % (
+            lat, lon, elev, when, alt, math.degrees(s.alt), az, ephem.delta_t(o.date)))
+
+
 if __name__ == "__main__":
     print("PyEphem %s (libastro)" % ephem.__version__)
     day_across_midnight()
@@ -316,3 +339,4 @@ if __name__ == "__main__":
     plan_evening_starts()
     lamp_periods()
     no_lamps_stretches()
+    sun_from()

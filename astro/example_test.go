@@ -173,8 +173,8 @@ func ExampleEphemeris_SunDays() {
 func ExampleEphemeris_SunDays_polarNight() {
 	// At 78° N in mid-December the Sun stays below the horizon all day: the
 	// state says so instead of an error or an invented event. PyEphem 4.1.4
-	// has the Sun's centre 11.64° below the horizon at its transit that day,
-	// far under sunrise's −0.83°.
+	// (pressure 0) has the Sun's centre 11.64° below the horizon at its
+	// transit that day, far under sunrise's −0.83°.
 	first := time.Date(2027, 12, 21, 0, 0, 0, 0, time.UTC)
 	eph, err := astro.NewEphemeris(first, first)
 	if err != nil {

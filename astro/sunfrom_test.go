@@ -4,7 +4,6 @@ import (
 	"errors"
 	"math"
 	"regexp"
-	"strconv"
 	"testing"
 	"time"
 )
@@ -206,7 +205,7 @@ func TestSunFromMeeus25b(t *testing.T) {
 	if m == nil {
 		t.Fatalf("M25b-radec: cannot read %q", row)
 	}
-	num := func(s string) float64 { v, _ := strconv.ParseFloat(s, 64); return v }
+	num := func(s string) float64 { return mustFloat(t, s) }
 	ra := (num(m[1]) + num(m[2])/60 + num(m[3])/3600) * 15
 	dec := num(m[5]) + num(m[6])/60 + num(m[7])/3600
 	if m[4] == "-" {

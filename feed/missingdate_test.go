@@ -135,10 +135,10 @@ func TestStretchFromDateTheClocksSkip(t *testing.T) {
 // (and back a day, repeating 4 July 1892, from +12:33:04 to −11:26:56),
 // Pacific/Kwajalein back almost a day in 1969 (00:00 on 1 October, +11,
 // to 01:00 on 30 September, −12) and over 21 August 1993 (24:00 on the
-// 20th, −12, to 00:00 on the 22nd, +12); Europe/Vienna's clock changes
-// skip an hour, never a date. A window over a jump back and a later jump
-// forward has the date skipped. NightOf names the night of the date before
-// such a date to the date after it.
+// 20th, −12, to 00:00 on the 22nd, +12);
+// Europe/Vienna's clock changes skip an hour, never a date. A window
+// over a jump back and a later jump forward has the date skipped. NightOf names
+// the night of the date before such a date to the date after it.
 func TestMissingDates(t *testing.T) {
 	for _, tc := range []struct {
 		zone, first, last, want, night string

@@ -131,13 +131,8 @@ func TestStretchFromDateTheClocksSkip(t *testing.T) {
 // (zdump -v): Pacific/Kiritimati from 23:59:59 on 30 December 1994 (UTC−10)
 // to 00:00 on 1 January 1995 (UTC+14), Asia/Manila from 23:59:59 on 30
 // December 1844 (its local mean time counted west, −15:56:08) to
-// 00:00 on 1 January 1845 (+8:03:52), Pacific/Apia over 30 December 2011
-// (and back a day, repeating 4 July 1892, from +12:33:04 to −11:26:56),
-// Pacific/Kwajalein back almost a day in 1969 (00:00 on 1 October, +11,
-// to 01:00 on 30 September, −12) and over 21 August 1993 (24:00 on the
-// 20th, −12, to 00:00 on the 22nd, +12);
-// Europe/Vienna's clock changes skip an hour, never a date. A window
-// over a jump back and a later jump forward has the date skipped. NightOf names
+// 00:00 on 1 January 1845 (+8:03:52), Pacific/Apia over 30 December 2011;
+// Europe/Vienna's clock changes skip an hour, never a date. NightOf names
 // the night of the date before such a date to the date after it.
 func TestMissingDates(t *testing.T) {
 	for _, tc := range []struct {
@@ -146,8 +141,6 @@ func TestMissingDates(t *testing.T) {
 		{"Pacific/Kiritimati", "1994-12-20", "1995-01-10", "1994-12-31", "night of 30 December 1994–1 January 1995"},
 		{"Asia/Manila", "1844-12-20", "1845-01-10", "1844-12-31", "night of 30 December 1844–1 January 1845"},
 		{"Pacific/Apia", "2011-12-01", "2012-01-31", "2011-12-30", "night of 29–31 December"},
-		{"Pacific/Kwajalein", "1960-01-01", "2000-01-01", "1993-08-21", "night of 20–22 August 1993"},
-		{"Pacific/Apia", "1890-01-01", "2012-06-01", "2011-12-30", "night of 29–31 December"},
 		{"Europe/Vienna", "2027-01-01", "2027-12-31", "", ""},
 	} {
 		loc, err := time.LoadLocation(tc.zone)

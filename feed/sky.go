@@ -339,40 +339,23 @@ func midnight(d time.Time, loc *time.Location) time.Time {
 // exist in loc, in order: dates the clocks jumped over whole, as
 // Pacific/Apia's did over 30 December 2011 (from 23:59:59 on the 29th,
 // UTC−10, to 00:00 on the 31st, UTC+14). Nearly every zone has none: the
-// clocks jump over a date only by moving the offset forward by a day at
-// once, so the dates are looked at one by one only around a change of
-// offset of 20 h or more forward (every such jump of the tz database:
-// Apia, Fakaofo, Kiritimati, Kanton, Kwajalein, Manila). Each change is
-// looked at, not the offsets at the two ends alone: over 1960–2000
-// Kwajalein's went back almost a day in 1969 and forward one in 1993.
+// clocks jump over a date only by moving the offset forward by a day, so
+// the dates are looked at one by one only when the offset after last is
+// 20 h or more ahead of the one before first (every such jump of the tz
+// database stayed: Apia, Fakaofo, Kiritimati, Kanton, Kwajalein, Manila).
 func missingDates(loc *time.Location, first, last time.Time) []time.Time {
+	_, before := first.Add(-3 * 24 * time.Hour).In(loc).Zone()
+	_, after := last.Add(3 * 24 * time.Hour).In(loc).Zone()
+	if after-before < 20*3600 {
+		return nil
+	}
 	var out []time.Time
-	for t, to := first.Add(-3*24*time.Hour), last.Add(3*24*time.Hour); ; {
-		_, change := t.In(loc).ZoneBounds()
-		if change.IsZero() || !change.Before(to) {
-			return out
-		}
-		t = change
-		_, before := change.Add(-time.Second).In(loc).Zone()
-		_, after := change.In(loc).Zone()
-		if after-before < 20*3600 {
-			continue
-		}
-		// the dates from the one the clocks leave to the one they show
-		// after the change
-		d, end := localDate(change.Add(-time.Second), loc), localDate(change, loc)
-		if d.Before(first) {
-			d = first
-		}
-		if end.After(last) {
-			end = last
-		}
-		for ; !d.After(end); d = d.AddDate(0, 0, 1) {
-			if skipped(d, loc) {
-				out = append(out, d)
-			}
+	for d := first; !d.After(last); d = d.AddDate(0, 0, 1) {
+		if skipped(d, loc) {
+			out = append(out, d)
 		}
 	}
+	return out
 }
 
 // skipped reports whether the local date d (00:00 UTC) does not exist in

@@ -131,9 +131,17 @@ func TestStretchFromDateTheClocksSkip(t *testing.T) {
 // (zdump -v): Pacific/Kiritimati from 23:59:59 on 30 December 1994 (UTC−10)
 // to 00:00 on 1 January 1995 (UTC+14), Asia/Manila from 23:59:59 on 30
 // December 1844 (its local mean time counted west, −15:56:08) to
-// 00:00 on 1 January 1845 (+8:03:52), Pacific/Apia over 30 December 2011;
-// Europe/Vienna's clock changes skip an hour, never a date. NightOf names
-// the night of the date before such a date to the date after it.
+// 00:00 on 1 January 1845 (+8:03:52), Pacific/Apia over 30 December 2011
+// (and back a day in 1892, from 23:59:59 on 4 July, +12:33:04, to 00:00 on
+// 4 July, −11:26:56), Pacific/Kwajalein back almost a day in 1969 (from
+// 23:59:59 on 30 September, +11, to 01:00 on 30 September, −12) and over
+// 21 August 1993 (from 23:59:59 on the 20th, −12, to 00:00 on the 22nd,
+// +12): a window over a jump back and a later jump forward has the date
+// skipped. Europe/Vienna's clock changes skip an hour, never a date; a
+// window past a zone's last transition in the tz data (Europe/Zurich's
+// rule for 2020–2070, Asia/Tokyo's offset since 1951, Pacific/Apia's
+// since 2021, Pacific/Kiritimati's since 1995) has none either. NightOf
+// names the night of the date before such a date to the date after it.
 func TestMissingDates(t *testing.T) {
 	for _, tc := range []struct {
 		zone, first, last, want, night string
@@ -141,7 +149,13 @@ func TestMissingDates(t *testing.T) {
 		{"Pacific/Kiritimati", "1994-12-20", "1995-01-10", "1994-12-31", "night of 30 December 1994–1 January 1995"},
 		{"Asia/Manila", "1844-12-20", "1845-01-10", "1844-12-31", "night of 30 December 1844–1 January 1845"},
 		{"Pacific/Apia", "2011-12-01", "2012-01-31", "2011-12-30", "night of 29–31 December"},
+		{"Pacific/Kwajalein", "1960-01-01", "2000-01-01", "1993-08-21", "night of 20–22 August 1993"},
+		{"Pacific/Apia", "1890-01-01", "2012-06-01", "2011-12-30", "night of 29–31 December"},
 		{"Europe/Vienna", "2027-01-01", "2027-12-31", "", ""},
+		{"Europe/Zurich", "2020-01-01", "2070-12-31", "", ""},
+		{"Asia/Tokyo", "2030-01-01", "2060-12-31", "", ""},
+		{"Pacific/Apia", "2030-01-01", "2060-12-31", "", ""},
+		{"Pacific/Kiritimati", "2000-01-01", "2199-12-31", "", ""},
 	} {
 		loc, err := time.LoadLocation(tc.zone)
 		if err != nil {
@@ -159,6 +173,55 @@ func TestMissingDates(t *testing.T) {
 		}
 		if n := NightOf(date(tc.want).AddDate(0, 0, -1), loc); !strings.HasPrefix(n, tc.night) {
 			t.Errorf("%s: %q, want %q", tc.zone, n, tc.night)
+		}
+	}
+}
+
+// TestFeedOverJumpsBackAndForward: a feed whose window holds a jump of the
+// clocks back a day and a later jump forward over a date has no entry on
+// that date (zdump -v: Pacific/Kwajalein from +11 to −12 on 30 September
+// 1969, then from 23:59:59 on 20 August 1993, −12, to 00:00 on the 22nd,
+// +12; Pacific/Apia from +12:33:04 to −11:26:56 on 4 July 1892, then from
+// 23:59:59 on 29 December 2011, −10, to 00:00 on the 31st, +14), and the
+// dates around it keep one daily summary and one entry of an every-day
+// plan each.
+func TestFeedOverJumpsBackAndForward(t *testing.T) {
+	for _, tc := range []struct {
+		zone          string
+		lat, lon      float64
+		first, last   string
+		gone          string
+		before, after string
+	}{
+		{"Pacific/Kwajalein", 8.72, 167.73, "1969-09-01", "1993-09-30", "1993-08-21", "1993-08-20", "1993-08-22"},
+		{"Pacific/Apia", -13.86, -171.77, "1890-01-01", "2012-06-01", "2011-12-30", "2011-12-29", "2011-12-31"},
+	} {
+		s := site(t, "atoll", tc.lat, tc.lon, tc.zone)
+		f := &config.Feed{ID: "atoll", Site: s.ID, Kinds: []config.KindSpec{{Kind: mustKinds(t, "daily-summary")[0]}},
+			Plans: []config.Plan{{Title: "Morning round", Date: "every day", Start: "06:30", For: config.Duration(time.Hour)}}}
+		first, last := date(tc.first), date(tc.last)
+		sk, err := NewSky(first.AddDate(0, 0, -PlanMargin), last.AddDate(0, 0, PlanMargin))
+		if err != nil {
+			t.Fatal(err)
+		}
+		cal, err := sk.Calendar(context.Background(), s, f, first, last, Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		count := map[string]int{}
+		for _, e := range cal.Entries {
+			day := e.Date.Format(time.DateOnly)
+			if day == tc.gone {
+				t.Errorf("%s: entry on %s, a date the clocks skip: %s %q", tc.zone, day, e.Kind, e.Title)
+			}
+			count[day+" "+e.Kind]++
+		}
+		for _, day := range []string{tc.before, tc.after} {
+			for _, k := range []string{"daily-summary", "plan"} {
+				if n := count[day+" "+k]; n != 1 {
+					t.Errorf("%s, %s: %d %s entries, want 1", tc.zone, day, n, k)
+				}
+			}
 		}
 	}
 }

@@ -339,21 +339,51 @@ func midnight(d time.Time, loc *time.Location) time.Time {
 // exist in loc, in order: dates the clocks jumped over whole, as
 // Pacific/Apia's did over 30 December 2011 (from 23:59:59 on the 29th,
 // UTC−10, to 00:00 on the 31st, UTC+14). Nearly every zone has none: the
-// clocks jump over a date only by moving the offset forward by a day, so
-// the dates are looked at one by one only when the offset after last is
-// 20 h or more ahead of the one before first (every such jump of the tz
-// database stayed: Apia, Fakaofo, Kiritimati, Kanton, Kwajalein, Manila).
+// clocks jump over a date only by moving the offset forward by a day at
+// once (every such jump of the tz database: Apia, Fakaofo, Kiritimati,
+// Kanton, Kwajalein, Manila), so the dates are looked at one by one only
+// around a change of offset of 20 h or more forward. Each change in the
+// window is looked at, not only the offsets at its two ends: over
+// 1960–2000 Kwajalein's went back almost a day in 1969 and forward one in
+// 1993.
+//
+// The changes are found with ZoneBounds, one period of the zone at a time,
+// and each step is a day at least: past the zone data's last transition
+// Go's ZoneBounds can give an end at or before the instant asked about
+// (Go 1.26, Europe/Zurich on 31 December 2040), which would never move
+// on. A step of a day compares the offsets at its two ends, so the loop
+// ends after as many steps as the window has days at most, and a jump of a
+// day is still seen (no zone moves its clocks twice within a day).
 func missingDates(loc *time.Location, first, last time.Time) []time.Time {
-	_, before := first.Add(-3 * 24 * time.Hour).In(loc).Zone()
-	_, after := last.Add(3 * 24 * time.Hour).In(loc).Zone()
-	if after-before < 20*3600 {
-		return nil
-	}
 	var out []time.Time
-	for d := first; !d.After(last); d = d.AddDate(0, 0, 1) {
-		if skipped(d, loc) {
-			out = append(out, d)
+	from, to := first.Add(-3*24*time.Hour), last.Add(3*24*time.Hour)
+	_, before := from.In(loc).Zone()
+	for t := from; t.Before(to); {
+		_, next := t.In(loc).ZoneBounds()
+		switch {
+		case next.IsZero() || next.After(to):
+			next = to // the offset holds to the window's end
+		case next.Before(t.Add(24 * time.Hour)):
+			next = t.Add(24 * time.Hour)
 		}
+		_, after := next.In(loc).Zone()
+		if after-before >= 20*3600 {
+			// the dates from the one the clocks leave (the change is
+			// within the day before next) to the one they show after it
+			d, end := localDate(next.Add(-24*time.Hour), loc), localDate(next, loc)
+			if d.Before(first) {
+				d = first
+			}
+			if end.After(last) {
+				end = last
+			}
+			for ; !d.After(end); d = d.AddDate(0, 0, 1) {
+				if skipped(d, loc) {
+					out = append(out, d)
+				}
+			}
+		}
+		t, before = next, after
 	}
 	return out
 }

@@ -559,3 +559,49 @@ feeds:
 		t.Errorf("csv rows %q, want one note, state under-min-duration", rows)
 	}
 }
+
+// A date the clocks skip is left out over a long window that also holds a
+// jump back a day, in `heliocal events --feed` and in `heliocal events`
+// (zdump -v Pacific/Kwajalein: from +11 to −12 on 30 September 1969, then
+// from 23:59:59 on 20 August 1993, −12, to 00:00 on the 22nd, +12).
+func TestEventsLongWindowSkippedDate(t *testing.T) {
+	cfg := writeConfig(t, `sites:
+  - id: atoll
+    latitude: 8.72
+    longitude: 167.73
+    timezone: Pacific/Kwajalein
+feeds:
+  - id: atoll-days
+    site: atoll
+    kinds: [daily-summary, lighting:13h]
+    plans:
+      - title: Morning round
+        date: every day
+        start: "06:30"
+        for: 1h
+`)
+	for _, args := range [][]string{
+		{"--config", cfg, "events", "--feed", "atoll-days", "--from", "1960-01-01", "--to", "2000-01-01", "--format", "csv"},
+		{"events", "--lat", "8.72", "--lon", "167.73", "--tz", "Pacific/Kwajalein", "--kinds", "daily-summary,lighting:13h",
+			"--from", "1960-01-01", "--to", "2000-01-01", "--format", "csv"},
+	} {
+		code, out, errOut := runCLI(t, args...)
+		if code != 0 {
+			t.Fatalf("%v: exit %d: %s", args, code, errOut)
+		}
+		count := map[string]int{}
+		for _, line := range strings.Split(out, "\n") {
+			if d, _, ok := strings.Cut(line, ","); ok {
+				count[d]++
+			}
+		}
+		if n := count["1993-08-21"]; n != 0 {
+			t.Errorf("%v: %d rows on 1993-08-21, a date the clocks skip", args, n)
+		}
+		for _, d := range []string{"1993-08-20", "1993-08-22"} {
+			if count[d] == 0 {
+				t.Errorf("%v: no rows on %s", args, d)
+			}
+		}
+	}
+}

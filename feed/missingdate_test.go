@@ -225,3 +225,51 @@ func TestFeedOverJumpsBackAndForward(t *testing.T) {
 		}
 	}
 }
+
+// TestWeekdayRuleOnDateTheClocksSkip: a weekday rule whose date the clocks
+// skip whole takes the nearest such weekday that exists, and the entry
+// names the skipped date. Pacific/Apia skips Friday 30 December 2011
+// (zdump -v Pacific/Apia: 23:59:59 on the 29th, UTC−10, then 00:00 on the
+// 31st, UTC+14); USNO's phases of the Moon: new moon 2011-12-24 18:06 UT
+// (Saturday 24 December, 08:06 UTC−10), first quarter 2012-01-01 06:15 UT
+// (Sunday 1 January, 20:15 UTC+14). The Friday nearest that first
+// quarter would be 30 December (2 days back; 6 January is 5 ahead), the
+// Friday before it too, and the Friday after the new moon; the Friday
+// after a Moon phase takes the new moon and the first quarter to 6
+// January, one entry naming both.
+func TestWeekdayRuleOnDateTheClocksSkip(t *testing.T) {
+	s := site(t, "vailima", -13.86, -171.77, "Pacific/Apia")
+	for _, tc := range []struct {
+		rule, start string
+		dates       string // the entries' dates from 20 December to 8 January
+		moved       string // the one that names 30 December
+		anchors     int
+	}{
+		{"friday nearest first-quarter", "19:00", "2012-01-06", "2012-01-06", 1},
+		{"friday before first-quarter", "", "2011-12-23", "2011-12-23", 1},
+		{"friday after new-moon", "sunset", "2012-01-06", "2012-01-06", 1},
+		// the last quarter of Saturday 17 December gives the 23rd
+		{"friday after moon-phases", "", "2011-12-23 2012-01-06", "2012-01-06", 2},
+	} {
+		pl := config.Plan{Title: "Reef walk", Date: tc.rule, Start: tc.start}
+		es := planEntries(t, s, "2011-12-20", "2012-01-08", pl)
+		if got := dates(es); got != tc.dates {
+			t.Errorf("%s: entries on %s, want %s", tc.rule, got, tc.dates)
+			continue
+		}
+		e := entryOn(t, es, tc.moved)
+		line, _, _ := strings.Cut(e.Description, "\n")
+		word := strings.Fields(tc.rule)[1]
+		if note := "the clocks skip Fri 30 Dec 2011, the Friday " + word + " it"; !strings.Contains(line, note) {
+			t.Errorf("%s: description %q, want it to say %q", tc.rule, line, note)
+		}
+		if n := strings.Count(line, " UTC"); n != tc.anchors {
+			t.Errorf("%s: %d events named in %q, want %d", tc.rule, n, line, tc.anchors)
+		}
+		if tc.start == "19:00" {
+			if got, want := e.Start.In(s.TimeZone.Location).Format(time.RFC3339), "2012-01-06T19:00:00+14:00"; got != want {
+				t.Errorf("%s: start %s, want %s", tc.rule, got, want)
+			}
+		}
+	}
+}

@@ -61,6 +61,10 @@ type planDate struct {
 	kind     config.Kind
 	at       time.Time
 	dir      astro.Direction // a photoperiod's: rising past its day length or falling below
+	// skipped is the date a weekday rule gave for the event that the
+	// clocks skip whole (zero: none): date is the next such weekday
+	// instead
+	skipped time.Time
 	// also are the other events of the rule that fall to the same date
 	// ("saturday after moon-phases": a first quarter on a Saturday and the
 	// full moon on the Friday after), in the order of their instants
@@ -69,9 +73,10 @@ type planDate struct {
 
 // planAnchor is one more event of a plan's date rule on a date.
 type planAnchor struct {
-	kind config.Kind
-	at   time.Time
-	dir  astro.Direction
+	kind    config.Kind
+	at      time.Time
+	dir     astro.Direction
+	skipped time.Time // as planDate's
 }
 
 // feedEntries computes the entries of a feed's kinds and plans on the local
@@ -695,18 +700,26 @@ func (sky *Sky) planDates(ctx context.Context, p Place, r config.DateRule, first
 	listed := make([]int, daysBetween(first, last)+1)
 	for _, e := range evs {
 		d := e.day
+		var skipped time.Time
 		if r.Type == config.RuleWeekdayOf {
 			d = weekdayOf(d, r.Weekday, r.Relation)
+			// a date the clocks skip whole (Friday 30 December 2011 in
+			// Pacific/Apia) is no such weekday: the rule takes the
+			// nearest one that exists, a week before or after (only one
+			// within a week of the window can reach it)
+			if !d.Before(first.AddDate(0, 0, -7)) && !d.After(last.AddDate(0, 0, 7)) && c.gone(d) {
+				skipped, d = d, otherWeekday(d, e.day, r.Relation)
+			}
 		}
 		if d.Before(first) || d.After(last) {
 			continue
 		}
 		i := daysBetween(first, d)
 		if j := listed[i]; j > 0 {
-			out[j-1].also = append(out[j-1].also, planAnchor{e.kind, e.at, e.dir})
+			out[j-1].also = append(out[j-1].also, planAnchor{e.kind, e.at, e.dir, skipped})
 			continue
 		}
-		out = append(out, planDate{date: d, anchored: true, kind: e.kind, at: e.at, dir: e.dir})
+		out = append(out, planDate{date: d, anchored: true, kind: e.kind, at: e.at, dir: e.dir, skipped: skipped})
 		listed[i] = len(out)
 	}
 	return out, nil
@@ -736,6 +749,17 @@ func weekdayOf(d time.Time, wd time.Weekday, rel string) time.Time {
 		return d.AddDate(0, 0, ahead-7)
 	}
 	return d.AddDate(0, 0, ahead)
+}
+
+// otherWeekday is the date of a weekday rule for an event on the local
+// date day when the date d it gives does not exist: the same weekday a
+// week earlier for "before", a week later for "after", and for "nearest"
+// the one on the other side of day, which is nearer than any other.
+func otherWeekday(d, day time.Time, rel string) time.Time {
+	if rel == config.RelBefore || rel == config.RelNearest && d.After(day) {
+		return d.AddDate(0, 0, -7)
+	}
+	return d.AddDate(0, 0, 7)
 }
 
 // planText is the text of a plan that is the same on each of its dates.
@@ -803,9 +827,15 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 				return a.at.In(z.loc).AppendFormat(append(b, photoperiodWay(a.dir)...), "Mon 2 Jan 2006")
 			}
 			b = append(b, pt.anchorName(a.kind)...)
-			return z.appendStamp(append(b, ' '), ToMinute(a.at)) // to the minute: rounded, as every output
+			b = z.appendStamp(append(b, ' '), ToMinute(a.at)) // to the minute: rounded, as every output
+			if !a.skipped.IsZero() {
+				b = a.skipped.AppendFormat(append(b, "; the clocks skip "...), "Mon 2 Jan 2006")
+				b = append(append(append(b, ", the "...), pl.rule.Weekday.String()...), ' ')
+				b = append(append(b, pl.rule.Relation...), " it"...)
+			}
+			return b
 		}
-		b = anchor(b, planAnchor{pd.kind, pd.at, pd.dir})
+		b = anchor(b, planAnchor{pd.kind, pd.at, pd.dir, pd.skipped})
 		for _, a := range pd.also {
 			b = anchor(append(b, "; "...), a)
 		}

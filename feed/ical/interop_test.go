@@ -224,3 +224,42 @@ func TestPythonExpansion(t *testing.T) {
 		}
 	}
 }
+
+// TestEncodeDateLine: a feed over Pacific/Apia's jump across the date line
+// (zdump -v Pacific/Apia: from 23:59:59 on 29 December 2011, −10, to
+// 00:00 on the 31st, +14) and Pacific/Kiritimati's (from 23:59:59 on 30
+// December 1994, −10, to 00:00 on 1 January 1995, +14) is read back at
+// its instants by go-ical and through its own VTIMEZONE, and by libical
+// and python's recurring-ical-events where they are installed (see
+// TestLibical, TestPythonExpansion).
+func TestEncodeDateLine(t *testing.T) {
+	lib, _ := buildLibicalCheck(t)
+	py := pythonWithExpansion()
+	for _, tc := range []struct {
+		zone     string
+		from, to time.Time
+	}{
+		{"Pacific/Apia", utc(2011, 11, 1, 0, 0, 0), utc(2012, 5, 31, 0, 0, 0)},
+		{"Pacific/Kiritimati", utc(1994, 11, 1, 0, 0, 0), utc(1995, 5, 31, 0, 0, 0)},
+	} {
+		t.Run(tc.zone, func(t *testing.T) {
+			c := testCalendar(t, tc.zone, tc.from, tc.to)
+			data, err := Marshal(c, Options{Version: "test"})
+			if err != nil {
+				t.Fatal(err)
+			}
+			verify(t, c, data)
+			if lib != "" {
+				libicalReads(t, lib, c, data)
+			}
+			if py != "" {
+				years := []string{strconv.Itoa(tc.from.Year() - 1), strconv.Itoa(tc.to.Year() + 1)}
+				out, err := exec.Command(py, append([]string{filepath.Join("testdata", "expand.py"), writeTemp(t, data)}, years...)...).Output()
+				if err != nil {
+					t.Fatalf("expand.py: %v\n%s", err, out)
+				}
+				parseReadBack(t, out).compare(t, "recurring-ical-events", c)
+			}
+		})
+	}
+}

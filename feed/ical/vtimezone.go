@@ -27,13 +27,22 @@ type observance struct {
 // is not used: for zones with "negative DST" (Europe/Dublin, whose legal
 // standard time is the summer time) it would mark winter as daylight time.
 // The initial observance takes its kind from the next change (up to a year
-// on); a change of abbreviation alone keeps the kind before it.
+// on); a change of abbreviation alone keeps the kind before it. A next
+// change forward by 20 h or more is no change of season but the zone
+// moving across the date line, skipping a date: the initial observance
+// then takes the tz database's flag. Pacific/Apia's −10 before its jump to
+// +14 on 30 December 2011 was daylight time (zdump -v Pacific/Apia:
+// isdst=1); every other such jump of the tz database leaves standard time
+// (Kiritimati 1994, Kwajalein 1993, Fakaofo 2011, Manila 1844).
 func observances(loc *time.Location, from, to time.Time) []observance {
 	name, off := from.In(loc).Zone()
 	first := observance{Start: from, From: off, To: off, Name: name}
 	// The initial observance is daylight time if clocks next go back.
 	if o, _, ok := nextChange(loc, from, to.AddDate(1, 0, 0), func(_ string, o int) bool { return o != off }); ok {
 		first.DST = o < off
+		if o-off >= 20*3600 {
+			first.DST = from.In(loc).IsDST()
+		}
 	}
 	obs := []observance{first}
 	for t := from; ; {

@@ -341,7 +341,8 @@ func midnight(d time.Time, loc *time.Location) time.Time {
 // UTC−10, to 00:00 on the 31st, UTC+14). Nearly every zone has none: the
 // clocks jump over a date only by moving the offset forward by a day at
 // once (every such jump of the tz database: Apia, Fakaofo, Kiritimati,
-// Kanton, Kwajalein, Manila), so the dates are looked at one by one only
+// Kanton, Kwajalein; Manila, Guam, Saipan, Palau, Chuuk, Pohnpei and Kosrae
+// at the end of 1844), so the dates are looked at one by one only
 // around a change of offset of 20 h or more forward. Each change in the
 // window is looked at, not only the offsets at its two ends: over
 // 1960–2000 Kwajalein's went back almost a day in 1969 and forward one in

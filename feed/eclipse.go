@@ -1,6 +1,7 @@
 package feed
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"strings"
@@ -75,6 +76,9 @@ func (c *collector) eclipses(k config.Kind) error {
 	if k.Name == "solar-eclipse" {
 		for _, e := range list.solar {
 			if l, ok := e.Local(o); ok && l.Visible() {
+				if err := c.riseSetAsEntries(l.Horizon, nil); err != nil {
+					return err
+				}
 				if err := add(l.C1.Time, l.C4.Time, EclipseFacts{Solar: &l}); err != nil {
 					return err
 				}
@@ -84,8 +88,52 @@ func (c *collector) eclipses(k config.Kind) error {
 	}
 	for _, e := range list.lunar {
 		if l := e.Local(o); l.Visible() {
+			if len(l.Horizon) > 0 && me == nil {
+				var err error
+				if me, err = c.sky.moonEphemeris(); err != nil {
+					return err
+				}
+			}
+			if err := c.riseSetAsEntries(l.Horizon, me); err != nil {
+				return err
+			}
 			if err := add(l.P1.Time, l.P4.Time, EclipseFacts{Lunar: &l}); err != nil {
 				return err
+			}
+		}
+	}
+	return nil
+}
+
+// riseSetAsEntries puts each sunrise or sunset (me nil) or moonrise or
+// moonset during an eclipse at the instant the sunrise, sunset, moonrise
+// and moonset entries give it. The eclipse's own search of the horizon works
+// from its fitted positions and lands a few tenths of a second away, enough
+// for its text to say a second other than the entry beside it. A rise or set
+// the entries' search does not find within a minute keeps its time.
+func (c *collector) riseSetAsEntries(hs []astro.HorizonEvent, me *astro.MoonEphemeris) error {
+	o := c.p.Observer
+	for i := range hs {
+		h := &hs[i]
+		from, to := h.Time.Add(-time.Minute), h.Time.Add(time.Minute)
+		var xs []astro.Crossing
+		var err error
+		if me != nil {
+			xs, err = me.MoonRiseSet(o, from, to)
+		} else {
+			xs, err = c.sky.eph.SunCrossings(o, o.RiseSetAltitude(), from, to)
+		}
+		var re *astro.RangeError
+		if errors.As(err, &re) {
+			continue // at an end of the sky's span: the eclipse's own time
+		}
+		if err != nil {
+			return err
+		}
+		for _, x := range xs {
+			if x.Direction == h.Direction && x.Time.Sub(h.Time).Abs() < time.Minute {
+				h.Time = x.Time
+				break
 			}
 		}
 	}

@@ -275,3 +275,20 @@ func TestPublishOutDirBrokenLink(t *testing.T) {
 		t.Errorf("nothing published through the link: %v", err)
 	}
 }
+
+// docs/feeds.md quotes the error of a publish into a full disk word for
+// word, as outDirFailed writes it for the error the writer returns
+// (TestOutDirFailedWords, "full disk").
+func TestDiskFullWordsDocumented(t *testing.T) {
+	err := fmt.Errorf("%w; nothing was changed: the files published before are as they were",
+		&publish.DiskFullError{Dir: "public", File: "farm-sun.ics",
+			Err: &fs.PathError{Op: "write", Path: filepath.Join("public", ".farm-sun.ics.tmp-1"), Err: syscall.ENOSPC}})
+	msg := outDirFailed("--out", "public", err).Error()
+	doc, rerr := os.ReadFile("../../docs/feeds.md")
+	if rerr != nil {
+		t.Fatal(rerr)
+	}
+	if text := strings.Join(strings.Fields(string(doc)), " "); !strings.Contains(text, "`"+msg+"`") {
+		t.Errorf("docs/feeds.md does not quote the full disk's error as publish says it:\n%s", msg)
+	}
+}

@@ -73,10 +73,13 @@ func TestHealthDegraded(t *testing.T) {
 		t.Fatal("a failing reload succeeded")
 	}
 	refused("2")
+	// The last build failed: stale, with the reload named as the reason.
+	check("right after a failed reload", "stale",
+		"configuration reload at 2026-12-02T03:15:00Z failed to build, still serving the previous configuration: ical: encoder failed")
 	if err := s.Refresh(t.Context()); err != nil {
 		t.Fatal(err)
 	}
-	check("after a failed reload", "degraded",
+	check("after a failed reload and a refresh", "degraded",
 		"configuration reload at 2026-12-02T03:15:00Z failed to build, still serving the previous configuration: ical: encoder failed")
 
 	if err := s.Reload(t.Context(), b.build); err != nil {

@@ -228,9 +228,10 @@ func brokenLink(field, out, p string, statErr error) error {
 // nothing can be created (/proc/1, for the superuser too), is named with the
 // flag or key that gave it and a hint, not by the temporary file or lock file
 // the publish tried first ("open public/.farm-sun.ics.tmp-81…: permission
-// denied"); a file already there that the user may not open (a lock file
-// or a feed of another user, in a directory the user may write to) is
-// named with the directory; a full disk or an exhausted quota is named
+// denied"); a file already there that the user may not open or replace (a
+// lock file or a feed of another user, in a directory the user may write
+// to; a feed in a sticky directory, or an immutable one, which the commit
+// cannot rename over) is named with the directory; a full disk or an exhausted quota is named
 // with the file that found it so, as the user knows it ("farm-sun.ics").
 // What the publish says of the files it left (the writer keeps nothing
 // half-written: "nothing was changed: …") follows. It stays a run-time

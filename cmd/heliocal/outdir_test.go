@@ -49,7 +49,7 @@ func TestOutDirFailedWords(t *testing.T) {
 			`--out: "/proc/1/sky": cannot create it (no such file or directory; give a directory on an ordinary file system, where files can be created)`},
 		{"what was kept", "--out", "sky",
 			fmt.Errorf("%w; nothing was changed: the files published before are as they were",
-				fmt.Errorf("publish: replace %s: %w", filepath.Join("sky", "farm-sun.ics"), pathErr("rename", filepath.Join("sky", "farm-sun.ics"), syscall.EPERM))),
+				fmt.Errorf("publish: %w", pathErr("replace", filepath.Join("sky", "farm-sun.ics"), syscall.EPERM))),
 			`--out: "sky": cannot write into it (operation not permitted; give a directory this user may write to, or change its permissions); nothing was changed: the files published before are as they were`},
 		{"full disk", "--out", "sky",
 			fmt.Errorf("%w; nothing was changed: the files published before are as they were",
@@ -112,6 +112,12 @@ func TestOutDirFailedNamesAFileThere(t *testing.T) {
 			`--out: "` + out + `": cannot open farm-sun.ics in it (permission denied; this user may not: change the file's owner or permissions, or remove it, and publish writes it again)`},
 		{fmt.Errorf("publish: write farm-moon.ics: %w", pathErr(".farm-moon.ics.tmp-1")),
 			`--out: "` + out + `": cannot write into it (permission denied; give a directory this user may write to, or change its permissions)`},
+		// a commit's rename over a feed the user may not replace (another
+		// user's in a sticky directory, an immutable one), as the writer's
+		// install returns it
+		{fmt.Errorf("%w; nothing was changed: the files published before are as they were",
+			fmt.Errorf("publish: %w", &fs.PathError{Op: "replace", Path: filepath.Join(out, "farm-sun.ics"), Err: syscall.EPERM})),
+			`--out: "` + out + `": cannot use farm-sun.ics in it (operation not permitted; this user may not: change the file's owner or permissions, or remove it, and publish writes it again); nothing was changed: the files published before are as they were`},
 	} {
 		err := outDirFailed("--out", out, tc.err)
 		if err.Error() != tc.want {

@@ -409,7 +409,7 @@ func (w *Writer) install(tmp, name string) error {
 		w.unkeep()
 		var le *os.LinkError
 		if errors.As(err, &le) { // not the temporary file's name: the file it would replace
-			return fmt.Errorf("publish: replace %s: %w", final, le.Err)
+			return fmt.Errorf("publish: %w", &fs.PathError{Op: "replace", Path: final, Err: le.Err})
 		}
 		return fmt.Errorf("publish: write %s: %w", name, err)
 	}

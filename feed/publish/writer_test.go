@@ -348,6 +348,10 @@ func TestFailedCommitPutsBackPublishedFiles(t *testing.T) {
 			if err.Error() != want {
 				t.Errorf("error:\n%s\nwant:\n%s", err, want)
 			}
+			// the file it could not replace, for the command to name
+			if pe := (*fs.PathError)(nil); !errors.As(err, &pe) || pe.Path != filepath.Join(dir, failing) {
+				t.Errorf("%v does not carry the path %s", err, filepath.Join(dir, failing))
+			}
 			now := snapshot(t, dir)
 			for name, b := range old {
 				if !bytes.Equal(now[name], b) {

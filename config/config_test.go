@@ -1152,3 +1152,31 @@ func TestBoolHintPlain(t *testing.T) {
 		t.Errorf("%v", err)
 	}
 }
+
+// max_feed_bytes: 0, in the file or from HELIOCAL_MAX_FEED_BYTES, is the
+// default limit, not "no limit", and docs/configuration.md's row says so.
+func TestMaxFeedBytesZeroIsTheDefault(t *testing.T) {
+	const file = "service:\n  max_feed_bytes: 0\nsites:\n  - id: a\n    latitude: 47.5\n    longitude: 9.7\n    timezone: Europe/Zurich\nfeeds:\n  - id: a-sun\n    site: a\n    kinds: [sunrise]\n"
+	for _, env := range []LookupEnv{nil, func(k string) (string, bool) { return "0", k == "HELIOCAL_MAX_FEED_BYTES" }} {
+		c, err := ParseEnv(strings.NewReader(file), "yaml", env)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if c.Service.MaxFeedBytes != DefaultMaxFeedBytes {
+			t.Errorf("max_feed_bytes 0 gives %d, want the default %d", c.Service.MaxFeedBytes, DefaultMaxFeedBytes)
+		}
+	}
+	b, err := os.ReadFile(filepath.Join("..", "docs", "configuration.md"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, line := range strings.Split(string(b), "\n") {
+		if strings.HasPrefix(line, "| `max_feed_bytes` |") {
+			if cells := strings.Split(line, " | "); !strings.HasPrefix(cells[len(cells)-2], "`1000000`, also when 0") {
+				t.Errorf("docs/configuration.md's max_feed_bytes row gives the default as %q, without saying that 0 is the default", cells[len(cells)-2])
+			}
+			return
+		}
+	}
+	t.Error("docs/configuration.md has no row for max_feed_bytes")
+}

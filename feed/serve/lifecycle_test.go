@@ -323,3 +323,50 @@ func TestShutdownStopsBuildQuietly(t *testing.T) {
 		}
 	}
 }
+
+// A scheduled refresh that the shutdown cuts short (Stop's bound reached
+// while it runs) is logged once, by the scheduler, as stopped: not once
+// more by the server, and never as a failure.
+func TestShutdownStopsScheduledRefreshOnce(t *testing.T) {
+	synctest.Test(t, func(t *testing.T) {
+		var logged bytes.Buffer
+		var mu sync.Mutex
+		running := make(chan struct{}, 1)
+		first := true
+		s, err := New(Options{
+			Build: func(ctx context.Context, gzip GzipFunc) (*publish.Bundle, error) {
+				if first {
+					first = false
+					return heldBy(testBundle("a"), gzip), nil
+				}
+				running <- struct{}{}
+				<-ctx.Done()
+				return nil, fmt.Errorf("publish: %w", ctx.Err())
+			},
+			Logger:   slog.New(slog.NewTextHandler(&lockedBuf{b: &logged, mu: &mu}, nil)),
+			Metrics:  NewRegistry(),
+			Schedule: "15 3 * * *", ScheduleZone: time.UTC,
+		})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if err := s.Refresh(t.Context()); err != nil {
+			t.Fatal(err)
+		}
+		s.sched.Start(t.Context())
+		time.Sleep(4 * time.Hour) // past 03:15
+		<-running
+		ctx, cancel := context.WithTimeout(t.Context(), time.Second)
+		defer cancel()
+		if err := s.sched.Stop(ctx); !errors.Is(err, context.DeadlineExceeded) {
+			t.Errorf("Stop = %v, want its bound reached", err)
+		}
+		synctest.Wait() // the run returns and is logged
+		mu.Lock()
+		out := logged.String()
+		mu.Unlock()
+		if n := strings.Count(out, "refresh stopped"); n != 1 || strings.Contains(out, "level=ERROR") {
+			t.Errorf("%d records of the stopped refresh, want 1, and no error:\n%s", n, out)
+		}
+	})
+}

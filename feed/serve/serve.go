@@ -424,7 +424,9 @@ func (s *Server) refresh(ctx context.Context, trigger string, next BuildFunc) (e
 		// Shutting down: the build was cut short, not failed, and its
 		// feeds would not be served. Logged as what it is, not counted as
 		// a failure, and the health of the feeds served is untouched.
-		s.log.Info("refresh stopped: shutting down", "trigger", trigger, "duration", d)
+		if trigger != triggerSchedule { // the scheduler logs its own runs
+			s.log.Info("refresh stopped: shutting down", "trigger", trigger, "duration", d)
+		}
 		return err
 	}
 	s.metrics.refreshSeconds.Observe(d.Seconds())

@@ -18,6 +18,7 @@ import (
 	"time"
 
 	"heliocal/feed"
+	"heliocal/internal/stopped"
 )
 
 // DefaultRunMaxAge is how long an unfinished sharded run is taken as still
@@ -480,7 +481,7 @@ func conditionsOf(site feed.Site, sites []feed.Site) feed.Site {
 func Publish(ctx context.Context, srcs []Source, opts RenderOptions, w *Writer) (Stats, error) {
 	r, err := startRun(srcs, &opts, w)
 	if err == nil {
-		if err = r.stage(ctx); err != nil && ctx.Err() != nil && errors.Is(err, ctx.Err()) {
+		if err = r.stage(ctx); stopped.By(ctx, err) {
 			// interrupted (SIGINT, SIGTERM) while computing: staging
 			// replaces nothing, and the error says so
 			err = unchanged(fmt.Errorf("publish: stopped before any file was replaced: %w", ctx.Err()))

@@ -44,6 +44,7 @@ import (
 	"heliocal/config"
 	"heliocal/feed/publish"
 	"heliocal/internal/schedule"
+	"heliocal/internal/stopped"
 )
 
 // BuildFunc renders every configured feed. It must not modify a Bundle it
@@ -376,7 +377,7 @@ func (s *Server) Reload(ctx context.Context, build BuildFunc) error {
 		return errors.New("serve: Reload: nil build function")
 	}
 	if err := s.refresh(ctx, triggerReload, build); err != nil {
-		if !stopped(ctx, err) { // shutting down is not a refused reload
+		if !stopped.By(ctx, err) { // shutting down is not a refused reload
 			s.refuseReload(err, true)
 		}
 		return err
@@ -402,12 +403,6 @@ func (s *Server) refuseReload(err error, build bool) {
 	s.healthMu.Unlock()
 }
 
-// stopped reports whether err, a build's, is ctx's cancellation: the
-// server is shutting down, and the build stopped because it was told to.
-func stopped(ctx context.Context, err error) bool {
-	return ctx.Err() != nil && errors.Is(err, ctx.Err())
-}
-
 // refresh runs a build (the current function, or next if non-nil) and swaps
 // in its result.
 func (s *Server) refresh(ctx context.Context, trigger string, next BuildFunc) (err error) {
@@ -420,7 +415,7 @@ func (s *Server) refresh(ctx context.Context, trigger string, next BuildFunc) (e
 	start := time.Now()
 	snap, err := s.runBuild(ctx, build)
 	d := time.Since(start)
-	if err != nil && stopped(ctx, err) {
+	if stopped.By(ctx, err) {
 		// Shutting down: the build was cut short, not failed, and its
 		// feeds would not be served. Logged as what it is, not counted as
 		// a failure, and the health of the feeds served is untouched.

@@ -16,6 +16,8 @@ import (
 	"time"
 
 	"github.com/robfig/cron/v3"
+
+	"heliocal/internal/stopped"
 )
 
 // DefaultSpec is the default refresh schedule: every night at 03:15.
@@ -306,7 +308,7 @@ func (s *Scheduler) run() {
 	s.mu.Lock()
 	s.lastDone, s.lastErr = time.Now(), err
 	s.mu.Unlock()
-	if err != nil && ctx.Err() != nil && errors.Is(err, ctx.Err()) {
+	if stopped.By(ctx, err) {
 		// stopped by Stop (the server is shutting down), not failed
 		s.log.Info("scheduled refresh stopped: shutting down", "duration", d)
 		return

@@ -1,0 +1,17 @@
+// Package stopped tells work that stopped because its context was cancelled
+// (a signal, a server shutting down) from work that failed: the first is
+// logged and reported as stopped, never counted as a failure.
+package stopped
+
+import (
+	"context"
+	"errors"
+)
+
+// By reports whether err is ctx's own ending: ctx is done and err wraps
+// ctx.Err() (context.Canceled, or context.DeadlineExceeded for a deadline).
+// An error that wraps another context's cancellation, or that only happened
+// while ctx was done, is not.
+func By(ctx context.Context, err error) bool {
+	return err != nil && ctx.Err() != nil && errors.Is(err, ctx.Err())
+}

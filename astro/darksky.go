@@ -331,7 +331,7 @@ func (e *MoonEphemeris) Illumination(t time.Time) (Illumination, error) {
 	ep := epochOf(sec)
 	dpsi, deps := nutationRad(ep.JDE)
 	eps := meanObliquityRad(ep.JDE) + deps
-	gast := meanSiderealRaw(ep.JDUT1)*deg2rad + dpsi*math.Cos(eps)
+	gast := meanSiderealRaw(ep.JDUT1)*deg2rad + equationOfEquinoxes(dpsi, eps)
 	raM, raS := norm2Pi(gast-ghaM), norm2Pi(gast-ghaS)
 	se, ce := math.Sincos(eps)
 	lon := func(ra, dec float64) float64 {

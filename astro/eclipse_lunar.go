@@ -119,7 +119,7 @@ func lunarSample(sec, raS, raM, g float64, out []float64) {
 	out[leMoonRA] = unwrapNear(moon.ra, raM)
 	out[leMoonDec] = moon.dec
 	out[leMoonDist] = moon.dist
-	out[leGAST] = unwrapNear(meanSiderealRaw(ep.JDUT1)*deg2rad+sun.dpsi*math.Cos(sun.eps), g)
+	out[leGAST] = unwrapNear(meanSiderealRaw(ep.JDUT1)*deg2rad+sun.eqEq(), g)
 }
 
 // LunarEclipses returns the lunar eclipses (penumbral ones included) whose

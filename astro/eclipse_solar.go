@@ -147,7 +147,7 @@ func besselian(sec, muRef float64, out []float64) {
 	sf2 := (rsun - k) / g
 	tf1 := sf1 / math.Sqrt(1-sf1*sf1)
 	tf2 := sf2 / math.Sqrt(1-sf2*sf2)
-	gast := meanSiderealRaw(ep.JDUT1)*deg2rad + sun.dpsi*math.Cos(sun.eps)
+	gast := meanSiderealRaw(ep.JDUT1)*deg2rad + sun.eqEq()
 	out[beX], out[beY], out[beD] = x, y, d
 	out[beMu] = unwrapNear(gast-a, muRef)
 	out[beL1] = (z + k/sf1) * tf1

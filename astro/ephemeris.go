@@ -358,7 +358,7 @@ func sunSamples(start float64, k0, k1 int, put func(b0 int, gha, dec, dist []flo
 			dpsi, deps := nutationDaily(jdes, &buf)
 			for i, e := range es {
 				s := apparentSunNut(e.JDE, Ls[i], Bs[i], Rs[i], dpsi[i], deps[i])
-				gha[i] = greenwichHourAngle(e, s.ra, s.dpsi*math.Cos(s.eps))
+				gha[i] = greenwichHourAngle(e, s.ra, s.eqEq())
 				dec[i], dist[i] = s.dec, s.r*earthRadiiPerAU
 			}
 			m := len(es)

@@ -71,7 +71,7 @@ func moonApparentFrom(jde, lon, lat, dist float64) moonState {
 	eps := meanObliquityRad(jde) + deps
 	lon = norm2Pi(lon + dpsi)
 	ra, dec := eclipticToEquatorial(lon, lat, eps)
-	return moonState{lon: lon, lat: lat, ra: ra, dec: dec, dist: dist, eqEq: dpsi * math.Cos(eps)}
+	return moonState{lon: lon, lat: lat, ra: ra, dec: dec, dist: dist, eqEq: equationOfEquinoxes(dpsi, eps)}
 }
 
 // eclipticToEquatorial converts ecliptic longitude and latitude to right

@@ -26,7 +26,15 @@ func meanSiderealRaw(jdUT1 float64) float64 {
 func ApparentSiderealTime(jdUT1, jde float64) float64 {
 	dpsi, deps := nutationRad(jde)
 	eps := meanObliquityRad(jde) + deps
-	return norm360(meanSiderealRaw(jdUT1) + dpsi*math.Cos(eps)*rad2deg)
+	return norm360(meanSiderealRaw(jdUT1) + equationOfEquinoxes(dpsi, eps)*rad2deg)
+}
+
+// equationOfEquinoxes is the equation of the equinoxes Δψ·cos ε in radians,
+// apparent minus mean sidereal time: the nutation in longitude dpsi (rad)
+// seen along the true equator, eps being the true obliquity (rad) (Meeus
+// ch. 12, p. 88).
+func equationOfEquinoxes(dpsi, eps float64) float64 {
+	return dpsi * math.Cos(eps)
 }
 
 // GreenwichMeanSiderealTime returns the Greenwich mean sidereal time in

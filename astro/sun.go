@@ -36,10 +36,11 @@ func Sun(t time.Time) (SunPosition, error) {
 		return SunPosition{}, err
 	}
 	a := apparentSun(e.JDE)
-	gast := meanSiderealRaw(e.JDUT1) + a.dpsi*math.Cos(a.eps)*rad2deg
+	eqEq := a.eqEq() * rad2deg
+	gast := meanSiderealRaw(e.JDUT1) + eqEq
 	tau := (e.JDE - J2000) / julianMillennium
 	l0 := 280.4664567 + tau*(360007.6982779+tau*(0.03032028+tau*(1.0/49931+tau*(-1.0/15300-tau/2000000))))
-	eqt := l0 - 0.0057183 - a.ra*rad2deg + a.dpsi*math.Cos(a.eps)*rad2deg
+	eqt := l0 - 0.0057183 - a.ra*rad2deg + eqEq
 	eqt = math.Mod(eqt, 360)
 	if eqt > 180 {
 		eqt -= 360
@@ -112,7 +113,7 @@ func SunFrom(o Observer, t time.Time) (SunTopocentric, error) {
 // sunFrom is SunFrom for a valid observer at epoch e.
 func sunFrom(o Observer, e Epoch) SunTopocentric {
 	s := apparentSun(e.JDE)
-	p := topocentric(o, e, s.ra, s.dec, s.r*auKm, s.dpsi*math.Cos(s.eps))
+	p := topocentric(o, e, s.ra, s.dec, s.r*auKm, s.eqEq())
 	alt := p.alt * rad2deg
 	return SunTopocentric{
 		RightAscension:    norm2Pi(p.ra) * rad2deg,
@@ -133,6 +134,9 @@ type sunApparent struct {
 	r            float64 // au
 	dpsi, eps    float64 // nutation in longitude, true obliquity
 }
+
+// eqEq is the equation of the equinoxes at the Sun's instant, radians.
+func (s sunApparent) eqEq() float64 { return equationOfEquinoxes(s.dpsi, s.eps) }
 
 // apparentSun computes the apparent geocentric Sun at jde (TT).
 func apparentSun(jde float64) sunApparent {

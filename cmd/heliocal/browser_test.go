@@ -818,6 +818,27 @@ func TestBrowserLongWordsWrap(t *testing.T) {
 	}
 }
 
+// havanaPreview opens the builder on a phone's screen (390 px wide) at
+// Havana, 23.11° N 82.41° W, with the kinds given chosen too, and waits for
+// its preview to begin on the date start (YYYY-MM-DD).
+func havanaPreview(url, start string, kinds ...string) chromedp.Action[chromedp.Void] {
+	steps := []chromedp.Action[chromedp.Void]{
+		chromedp.EmulateViewport(390, 844),
+		chromedp.Navigate(url + "/"),
+		chromedp.WaitVisible(chromedp.ID("lat")),
+	}
+	for _, k := range kinds {
+		steps = append(steps, chromedp.Click(chromedp.ID("k-"+k)))
+	}
+	return chromedp.Steps(append(steps,
+		chromedp.SendKeys(chromedp.ID("lat"), "23.11"),
+		chromedp.SendKeys(chromedp.ID("lon"), "-82.41"),
+		chromedp.SetValue(chromedp.ID("start"), start),
+		chromedp.Evaluate[chromedp.Void](`document.getElementById("builder").dispatchEvent(new Event("input"))`),
+		chromedp.Poll[chromedp.Void](`(() => { const th = document.querySelector("#preview th"); return th && th.textContent.includes("`+start+`"); })()`),
+	)...)
+}
+
 // The builder's preview says on which date the clocks change, before that
 // date's times, which shift with them, as the table page does: Havana's
 // clocks go from 00:00 to 01:00 on 14 March 2027 (zdump, tz database), and
@@ -825,16 +846,7 @@ func TestBrowserLongWordsWrap(t *testing.T) {
 func TestBrowserPreviewClockChange(t *testing.T) {
 	ts := builderServer(t)
 	ctx := browser(t)
-	if err := chromedp.Do(ctx,
-		chromedp.EmulateViewport(390, 844),
-		chromedp.Navigate(ts.URL+"/"),
-		chromedp.WaitVisible(chromedp.ID("lat")),
-		chromedp.SendKeys(chromedp.ID("lat"), "23.11"),
-		chromedp.SendKeys(chromedp.ID("lon"), "-82.41"),
-		chromedp.SetValue(chromedp.ID("start"), "2027-03-12"),
-		chromedp.Evaluate[chromedp.Void](`document.getElementById("builder").dispatchEvent(new Event("input"))`),
-		chromedp.Poll[chromedp.Void](`(() => { const th = document.querySelector("#preview th"); return th && th.textContent.includes("2027-03-12"); })()`),
-	); err != nil {
+	if err := chromedp.Do(ctx, havanaPreview(ts.URL, "2027-03-12")); err != nil {
 		t.Fatal(err)
 	}
 	said, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](`[...document.querySelectorAll("#preview tr")].filter(tr => tr.querySelector(".clocks"))
@@ -858,32 +870,28 @@ func TestBrowserPreviewClockChange(t *testing.T) {
 func TestBrowserRepeatedHour(t *testing.T) {
 	ts := builderServer(t)
 	ctx := browser(t)
-	const fits = `document.documentElement.scrollWidth <= window.innerWidth`
-	if err := chromedp.Do(ctx,
-		chromedp.EmulateViewport(390, 844),
-		chromedp.Navigate(ts.URL+"/"),
-		chromedp.WaitVisible(chromedp.ID("lat")),
-		chromedp.Click(chromedp.ID("k-moonset")),
-		chromedp.SendKeys(chromedp.ID("lat"), "23.11"),
-		chromedp.SendKeys(chromedp.ID("lon"), "-82.41"),
-		chromedp.SetValue(chromedp.ID("start"), "2027-11-06"),
-		chromedp.Evaluate[chromedp.Void](`document.getElementById("builder").dispatchEvent(new Event("input"))`),
-		chromedp.Poll[chromedp.Void](`(() => { const th = document.querySelector("#preview th"); return th && th.textContent.includes("2027-11-06"); })()`),
-	); err != nil {
+	// moonset checks the page shown: its moonset times (the text of the
+	// elements times selects) are 00:48 CST alone, and it fits the width.
+	moonset := func(page, times, png string) {
+		t.Helper()
+		got, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](`[...`+times+`].map(t => t.textContent)`))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(got) != 1 || got[0] != "00:48 CST" {
+			t.Errorf("%s: the moonset of 2027-11-07 at %q, want 00:48 CST", page, got)
+		}
+		const fits = `document.documentElement.scrollWidth <= window.innerWidth`
+		if ok, err := chromedp.Run(ctx, chromedp.Evaluate[bool](fits)); err != nil || !ok {
+			t.Errorf("%s at 390 px is wider than the screen (%v)", page, err)
+		}
+		shot(t, ctx, png)
+	}
+	if err := chromedp.Do(ctx, havanaPreview(ts.URL, "2027-11-06", "moonset")); err != nil {
 		t.Fatal(err)
 	}
 	row := `[...document.querySelectorAll("#preview tr")].find(tr => tr.querySelector("th").textContent.includes("2027-11-07"))`
-	got, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](`[...`+row+`.querySelectorAll("li[data-kind=moonset] .t")].map(t => t.textContent)`))
-	if err != nil {
-		t.Fatal(err)
-	}
-	if len(got) != 1 || got[0] != "00:48 CST" {
-		t.Errorf("the preview's moonset of 2027-11-07 at %q, want 00:48 CST", got)
-	}
-	if ok, err := chromedp.Run(ctx, chromedp.Evaluate[bool](fits)); err != nil || !ok {
-		t.Errorf("the builder at 390 px is wider than the screen (%v)", err)
-	}
-	shot(t, ctx, "repeated-hour-builder.png")
+	moonset("the builder's preview", row+`.querySelectorAll("li[data-kind=moonset] .t")`, "repeated-hour-builder.png")
 
 	if err := chromedp.Do(ctx,
 		chromedp.Navigate(ts.URL+"/at?lat=23.11&lon=-82.41&tz=America/Havana&kinds=moonset&start=2027-11-07&days=1"),
@@ -891,17 +899,7 @@ func TestBrowserRepeatedHour(t *testing.T) {
 	); err != nil {
 		t.Fatal(err)
 	}
-	got, err = chromedp.Run(ctx, chromedp.Evaluate[[]string](`[...document.querySelectorAll("table.days .t")].map(t => t.textContent)`))
-	if err != nil {
-		t.Fatal(err)
-	}
-	if len(got) != 1 || got[0] != "00:48 CST" {
-		t.Errorf("the table page's moonset of 2027-11-07 at %q, want 00:48 CST", got)
-	}
-	if ok, err := chromedp.Run(ctx, chromedp.Evaluate[bool](fits)); err != nil || !ok {
-		t.Errorf("the table page at 390 px is wider than the screen (%v)", err)
-	}
-	shot(t, ctx, "repeated-hour-table.png")
+	moonset("the table page", `document.querySelectorAll("table.days .t")`, "repeated-hour-table.png")
 }
 
 // Until a date is chosen, the builder previews from today at the place,

@@ -135,7 +135,7 @@ func snapshot(t testing.TB, dir string) map[string][]byte {
 	}
 	m := map[string][]byte{}
 	for _, e := range ents {
-		if !e.Type().IsRegular() || e.Name() == LockName {
+		if !e.Type().IsRegular() || e.Name() == LockName || e.Name() == LiveName {
 			continue
 		}
 		b, err := os.ReadFile(filepath.Join(dir, e.Name()))

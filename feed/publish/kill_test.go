@@ -5,10 +5,14 @@ import (
 	"bytes"
 	"context"
 	"encoding/json"
+	"errors"
 	"fmt"
+	"io/fs"
 	"math/rand/v2"
 	"os"
 	"os/exec"
+	"path/filepath"
+	"slices"
 	"strconv"
 	"strings"
 	"sync"
@@ -147,19 +151,7 @@ func TestKilledPublishKeepsListingTrue(t *testing.T) {
 	dir := t.TempDir()
 	whole := dir
 	publishTo(t, dir, killRevisions[0], testOptions())
-	start := func(env ...string) (*exec.Cmd, *bufio.Scanner) {
-		cmd := exec.Command(os.Args[0], "-test.run=^TestKilledPublishKeepsListingTrue$", "-test.count=1")
-		cmd.Env = append(append(os.Environ(), killDirEnv+"="+dir), env...)
-		out, err := cmd.StdoutPipe()
-		if err != nil {
-			t.Fatal(err)
-		}
-		cmd.Stderr = os.Stderr
-		if err := cmd.Start(); err != nil {
-			t.Fatal(err)
-		}
-		return cmd, bufio.NewScanner(out)
-	}
+	start := func(env ...string) (*exec.Cmd, *bufio.Scanner) { return startKillChild(t, dir, env...) }
 	// waitFor reads the child's output up to a line with one of the prefixes.
 	waitFor := func(sc *bufio.Scanner, prefixes ...string) string {
 		for sc.Scan() {
@@ -317,4 +309,61 @@ func mustAtoi(s string) int {
 		panic(err)
 	}
 	return n
+}
+
+// startKillChild starts a publishing process into dir that the test kills
+// (killChild), with the settings env, and returns it with its output.
+func startKillChild(t *testing.T, dir string, env ...string) (*exec.Cmd, *bufio.Scanner) {
+	t.Helper()
+	cmd := exec.Command(os.Args[0], "-test.run=^TestKilledPublishKeepsListingTrue$", "-test.count=1")
+	cmd.Env = append(append(os.Environ(), killDirEnv+"="+dir), env...)
+	out, err := cmd.StdoutPipe()
+	if err != nil {
+		t.Fatal(err)
+	}
+	cmd.Stderr = os.Stderr
+	if err := cmd.Start(); err != nil {
+		t.Fatal(err)
+	}
+	return cmd, bufio.NewScanner(out)
+}
+
+// A publish killed with SIGKILL leaves its temporary files; the next
+// publish removes them as soon as it holds the directory's lock, however
+// young, since no other run is alive (LiveName proves it). While their run
+// is alive, its files are kept.
+func TestKilledRunsTemporaryFilesRemovedByTheNext(t *testing.T) {
+	dir := t.TempDir()
+	publishTo(t, dir, killRevisions[0], testOptions())
+	cmd, sc := startKillChild(t, dir, killAtEnv+"=1", killRevEnv+"=1")
+	defer func() { cmd.Process.Kill(); cmd.Wait() }()
+	for sc.Scan() && !strings.HasPrefix(sc.Text(), "stopped at point 1") {
+	}
+	alive := tempNames(t, dir)
+	if len(alive) == 0 {
+		t.Fatal("the stopped run has written no temporary file")
+	}
+	if st := publishTo(t, dir, killRevisions[2], testOptions()); st.TempRemoved != 0 {
+		t.Errorf("a run beside a live one removed %d temporary files, want 0", st.TempRemoved)
+	}
+	kept := tempNames(t, dir)
+	for _, name := range alive {
+		if !slices.Contains(kept, name) {
+			t.Errorf("%s of the live run removed", name)
+		}
+	}
+
+	cmd.Process.Kill()
+	cmd.Wait()
+	left := tempNames(t, dir)
+	if _, err := os.Stat(filepath.Join(dir, LiveName)); err != nil {
+		t.Errorf("the killed run left no %s: %v", LiveName, err)
+	}
+	st := publishTo(t, dir, killRevisions[2], testOptions())
+	if now := tempNames(t, dir); len(now) != 0 || st.TempRemoved != len(left) {
+		t.Errorf("the next run removed %d of the killed run's %d temporary files, left %v", st.TempRemoved, len(left), now)
+	}
+	if _, err := os.Stat(filepath.Join(dir, LiveName)); !errors.Is(err, fs.ErrNotExist) {
+		t.Errorf("the next run, the last one out, left %s (%v)", LiveName, err)
+	}
 }

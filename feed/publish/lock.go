@@ -33,6 +33,58 @@ var ErrLocked = errors.New("locked by another publish")
 // run never leaves the directory locked.
 func (w *Writer) lockDir(ctx context.Context) (unlock func(), err error) {
 	path := filepath.Join(w.Dir, LockName)
+	f, err := openLock(path)
+	if err != nil {
+		return nil, err
+	}
+	wait := w.LockWait
+	if wait <= 0 {
+		wait = DefaultLockWait
+	}
+	deadline := time.Now().Add(wait)
+	told := false
+	err = w.pollLock(ctx, f, tryLock, func() error {
+		if !told && w.Waiting != nil {
+			w.Waiting(path)
+			told = true
+		}
+		if !time.Now().Before(deadline) {
+			return fmt.Errorf("publish: output directory %s: %w (waited %v for %s; is another heliocal publish stuck?)", w.Dir, ErrLocked, wait, path)
+		}
+		return nil
+	})
+	if err != nil {
+		f.Close()
+		return nil, err
+	}
+	return func() { unlockFile(f); f.Close() }, nil
+}
+
+// pollLock calls try on f, the lock file, every lockPoll until it takes
+// the lock; while the lock is busy, busy may end the wait with an error,
+// and so does the end of ctx.
+func (w *Writer) pollLock(ctx context.Context, f *os.File, try func(*os.File) (bool, error), busy func() error) error {
+	for {
+		ok, err := try(f)
+		if err != nil {
+			return fmt.Errorf("publish: lock %s: %w", f.Name(), err)
+		}
+		if ok {
+			return nil
+		}
+		if err := busy(); err != nil {
+			return err
+		}
+		select {
+		case <-ctx.Done():
+			return fmt.Errorf("publish: waiting for the lock on %s: %w", w.Dir, ctx.Err())
+		case <-time.After(lockPoll):
+		}
+	}
+}
+
+// openLock opens (creating it if need be) the lock file at path.
+func openLock(path string) (*os.File, error) {
 	f, err := os.OpenFile(path, os.O_RDWR|os.O_CREATE, FileMode)
 	if err != nil {
 		if fi, serr := os.Stat(path); serr == nil && fi.IsDir() {
@@ -49,34 +101,96 @@ func (w *Writer) lockDir(ctx context.Context) (unlock func(), err error) {
 		f.Close()
 		return nil, fmt.Errorf("publish: lock %s: %w", path, err)
 	}
-	wait := w.LockWait
-	if wait <= 0 {
-		wait = DefaultLockWait
-	}
-	deadline := time.Now().Add(wait)
-	told := false
+	return f, nil
+}
+
+// LiveName is the second lock file publish keeps in the output directory,
+// while a run is alive. Every run holds a shared lock on it from its start
+// to its end, the whole time it may own temporary files there (WriteBundle
+// and WriteFile too). A run that holds the directory's lock (LockName) and
+// can also lock LiveName exclusively has proof that no other run is alive:
+// every temporary file but its own is then a killed run's, and it removes
+// them, however young (removeOrphanTemps). The last run to end removes the
+// file; the kernel releases the locks of a process that dies, so a killed
+// run leaves it, unlocked, for the next run to use and remove.
+const LiveName = ".heliocal-publish-live.lock"
+
+// liveLock is a run's shared lock on LiveName.
+type liveLock struct {
+	f    *os.File
+	path string
+}
+
+// holdLive takes the shared lock on w.Dir's LiveName, waiting (until ctx
+// ends) while a run holds it exclusively, which it does only while it looks
+// for leftovers or removes the file.
+func (w *Writer) holdLive(ctx context.Context) (*liveLock, error) {
+	path := filepath.Join(w.Dir, LiveName)
 	for {
-		ok, err := tryLock(f)
+		f, err := openLock(path)
 		if err != nil {
+			return nil, err
+		}
+		if err := w.pollLock(ctx, f, tryLockShared, func() error { return nil }); err != nil {
 			f.Close()
-			return nil, fmt.Errorf("publish: lock %s: %w", path, err)
+			return nil, err
 		}
-		if ok {
-			return func() { unlockFile(f); f.Close() }, nil
+		if l := (&liveLock{f: f, path: path}); l.current() {
+			return l, nil
 		}
-		if !told && w.Waiting != nil {
-			w.Waiting(path)
-			told = true
-		}
-		if !time.Now().Before(deadline) {
-			f.Close()
-			return nil, fmt.Errorf("publish: output directory %s: %w (waited %v for %s; is another heliocal publish stuck?)", w.Dir, ErrLocked, wait, path)
-		}
-		select {
-		case <-ctx.Done():
-			f.Close()
-			return nil, fmt.Errorf("publish: waiting for the lock on %s: %w", w.Dir, ctx.Err())
-		case <-time.After(lockPoll):
-		}
+		// removed by the last run out while this one waited: the lock
+		// that counts is on the file there now
+		f.Close()
 	}
+}
+
+// current reports whether the file l locks is still the one at its path.
+func (l *liveLock) current() bool {
+	a, err := l.f.Stat()
+	if err != nil {
+		return false
+	}
+	b, err := os.Stat(l.path)
+	return err == nil && os.SameFile(a, b)
+}
+
+// exclusive trades the shared lock for an exclusive one, which is there
+// only when no other run holds the shared one, and calls fn holding it if
+// the file is still the one at the path; then it gives the exclusive lock
+// up (the shared one is not taken back). It reports whether fn was called.
+func (l *liveLock) exclusive(fn func()) bool {
+	unlockFile(l.f)
+	ok, err := tryLock(l.f)
+	ok = ok && err == nil && l.current()
+	if ok {
+		fn()
+	}
+	unlockFile(l.f)
+	return ok
+}
+
+// alone calls fn if no other run is alive, and reports whether it did.
+// The caller holds the directory's lock: no run can hold LiveName
+// exclusively meanwhile but one that ends, so the shared lock is taken
+// back after fn; the caller writes its remaining files under the
+// directory's lock, which keeps them from any other run's look for
+// leftovers anyway. A run that starts meanwhile waits for the shared lock
+// (holdLive) before it writes anything.
+func (l *liveLock) alone(fn func()) bool {
+	if l == nil {
+		return false
+	}
+	ok := l.exclusive(fn)
+	tryLockShared(l.f)
+	return ok
+}
+
+// release gives the lock back; the last run out removes the file (nil:
+// nothing to give back).
+func (l *liveLock) release() {
+	if l == nil {
+		return
+	}
+	l.exclusive(func() { os.Remove(l.path) })
+	l.f.Close()
 }

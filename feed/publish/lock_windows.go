@@ -10,9 +10,18 @@ import (
 )
 
 // tryLock takes an exclusive LockFileEx on f's first byte without blocking.
-func tryLock(f *os.File) (bool, error) {
+func tryLock(f *os.File) (bool, error) { return lockFileNB(f, windows.LOCKFILE_EXCLUSIVE_LOCK) }
+
+// tryLockShared takes a shared LockFileEx on f's first byte without
+// blocking.
+func tryLockShared(f *os.File) (bool, error) { return lockFileNB(f, 0) }
+
+// lockFileNB is LockFileEx of f's first byte with flags and
+// LOCKFILE_FAIL_IMMEDIATELY; false means the lock is held in a conflicting
+// way.
+func lockFileNB(f *os.File, flags uint32) (bool, error) {
 	ol := new(windows.Overlapped)
-	err := windows.LockFileEx(windows.Handle(f.Fd()), windows.LOCKFILE_EXCLUSIVE_LOCK|windows.LOCKFILE_FAIL_IMMEDIATELY, 0, 1, 0, ol)
+	err := windows.LockFileEx(windows.Handle(f.Fd()), flags|windows.LOCKFILE_FAIL_IMMEDIATELY, 0, 1, 0, ol)
 	if errors.Is(err, windows.ERROR_LOCK_VIOLATION) {
 		return false, nil
 	}

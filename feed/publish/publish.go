@@ -481,6 +481,11 @@ func conditionsOf(site feed.Site, sites []feed.Site) feed.Site {
 func Publish(ctx context.Context, srcs []Source, opts RenderOptions, w *Writer) (Stats, error) {
 	r, err := startRun(srcs, &opts, w)
 	if err == nil {
+		if r.live, err = w.holdLive(ctx); err != nil {
+			err = unchanged(err)
+		}
+	}
+	if err == nil {
 		if err = r.stage(ctx); stopped.By(ctx, err) {
 			// interrupted (SIGINT, SIGTERM) while computing: staging
 			// replaces nothing, and the error says so

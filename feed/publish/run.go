@@ -34,6 +34,9 @@ type publishRun struct {
 	// not yet, so that a failed run removes every one it left.
 	mu    sync.Mutex
 	temps []string
+	// live is the run's shared lock on LiveName, from the start to the
+	// end: its temporary files are its own.
+	live *liveLock
 }
 
 // stagedFeed is one rendered feed waiting for the commit.
@@ -158,6 +161,10 @@ func (r *publishRun) commit(ctx context.Context) (err error) {
 	}
 	defer unlock()
 	r.w.removePrevs()
+	r.mu.Lock()
+	own := tempBases(r.temps)
+	r.mu.Unlock()
+	r.st.TempRemoved += r.w.removeOrphanTemps(r.live, own)
 	// until the undo log begins, nothing published is changed: a failure
 	// says so, as one while staging does
 	if err := r.restage(ctx); err != nil {
@@ -286,6 +293,7 @@ func (w *Writer) writeCounted(st *Stats, f File, index bool) error {
 // finish ends the run: on error it removes the temporary files it staged
 // and has not renamed.
 func (r *publishRun) finish(err error) (Stats, error) {
+	defer r.live.release()
 	r.st.Elapsed = time.Since(r.start)
 	p := r.opts.Progress
 	if err != nil {

@@ -202,10 +202,6 @@ func mkdirAll(dir string) error {
 // regular files only) older than TempMaxAge. Younger ones may belong to
 // another worker writing right now.
 func (w *Writer) removeStaleTemps() (int, error) {
-	ents, err := os.ReadDir(w.Dir)
-	if err != nil {
-		return 0, fmt.Errorf("publish: output directory: %w", err)
-	}
 	maxAge := w.TempMaxAge
 	if maxAge <= 0 {
 		maxAge = DefaultTempMaxAge
@@ -215,13 +211,35 @@ func (w *Writer) removeStaleTemps() (int, error) {
 		now = w.now
 	}
 	cutoff := now().Add(-maxAge)
+	return w.removeTemps(func(e fs.DirEntry) bool {
+		fi, err := e.Info()
+		return err == nil && fi.ModTime().Before(cutoff)
+	})
+}
+
+// removeOrphanTemps removes, when no other run is alive (live, the run's
+// shared lock on LiveName, proves it), every temporary file of ours but
+// those the run itself has written (own, by base name): a killed run's,
+// however young. Called under the directory's lock; it returns how many it
+// removed.
+func (w *Writer) removeOrphanTemps(live *liveLock, own map[string]bool) int {
+	n := 0
+	live.alone(func() {
+		n, _ = w.removeTemps(func(e fs.DirEntry) bool { return !own[e.Name()] })
+	})
+	return n
+}
+
+// removeTemps removes the temporary files of ours (regular files only) in
+// w.Dir that remove chooses.
+func (w *Writer) removeTemps(remove func(fs.DirEntry) bool) (int, error) {
+	ents, err := os.ReadDir(w.Dir)
+	if err != nil {
+		return 0, fmt.Errorf("publish: output directory: %w", err)
+	}
 	n := 0
 	for _, e := range ents {
-		if !e.Type().IsRegular() || !isTempName(e.Name()) {
-			continue
-		}
-		fi, err := e.Info()
-		if err != nil || !fi.ModTime().Before(cutoff) {
+		if !e.Type().IsRegular() || !isTempName(e.Name()) || !remove(e) {
 			continue
 		}
 		if err := os.Remove(filepath.Join(w.Dir, e.Name())); err == nil {
@@ -231,11 +249,26 @@ func (w *Writer) removeStaleTemps() (int, error) {
 	return n, nil
 }
 
+// tempBases is the set of the base names of the temporary files temps.
+func tempBases(temps []string) map[string]bool {
+	own := make(map[string]bool, len(temps))
+	for _, t := range temps {
+		own[filepath.Base(t)] = true
+	}
+	return own
+}
+
 // WriteFile writes one file atomically and makes the rename durable. It
 // reports whether the file was written (false: the same bytes were there).
 func (w *Writer) WriteFile(name string, data []byte) (bool, error) {
 	if w.Dir == "" {
 		return false, errors.New("publish: output directory is empty")
+	}
+	// its temporary file is its own while it lives (see LiveName); where
+	// the lock file cannot be opened, the write goes on as before (in a
+	// directory that takes no new file, it fails below with its own words)
+	if live, err := w.holdLive(context.Background()); err == nil {
+		defer live.release()
 	}
 	written, err := w.writeFile(name, data)
 	if err != nil || !written {
@@ -745,6 +778,11 @@ func (w *Writer) WriteBundle(ctx context.Context, b *Bundle) (st Stats, err erro
 	if err != nil {
 		return st, err
 	}
+	live, err := w.holdLive(ctx)
+	if err != nil {
+		return st, err
+	}
+	defer live.release()
 	files := inPhaseOrder(b)
 	staged, err := w.stageBundle(ctx, files, &st)
 	defer removeStaged(staged)
@@ -757,6 +795,11 @@ func (w *Writer) WriteBundle(ctx context.Context, b *Bundle) (st Stats, err erro
 	}
 	defer unlock()
 	w.removePrevs()
+	temps := make([]string, 0, len(staged))
+	for _, sf := range staged {
+		temps = append(temps, sf.tmp)
+	}
+	st.TempRemoved += w.removeOrphanTemps(live, tempBases(temps))
 	w.beginUndo()
 	defer func() { err = w.endUndo(err) }()
 	if err := w.retractFeeds(changedIDs(staged)); err != nil {

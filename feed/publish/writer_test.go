@@ -446,13 +446,21 @@ func TestWriterRejectsBadNames(t *testing.T) {
 	}
 }
 
+// While another run is alive (it holds the shared lock on LiveName), a run
+// removes only the temporary files older than TempMaxAge: a younger one may
+// be that run's.
 func TestStaleTemporaryFilesRemoved(t *testing.T) {
 	dir := t.TempDir()
+	other, err := (&Writer{Dir: dir}).holdLive(context.Background())
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer other.release()
 	now := time.Date(2026, 12, 2, 3, 15, 0, 0, time.UTC)
 	files := map[string]time.Time{
 		".orchard-sunrise.ics.tmp-1234567": now.Add(-2 * time.Hour),    // ours, from a crashed run: removed
 		".index.html.tmp-99":               now.Add(-20 * time.Minute), // ours, crashed: removed
-		".feeds.json.tmp-42":               now.Add(-time.Minute),      // ours, maybe another worker's: kept
+		".feeds.json.tmp-42":               now.Add(-time.Minute),      // ours, maybe the other run's: kept
 		".notes.tmp-abc":                   now.Add(-48 * time.Hour),   // not our pattern: kept
 		"draft.tmp-1":                      now.Add(-48 * time.Hour),   // not hidden: kept
 	}

@@ -13,11 +13,10 @@ type File struct {
 	Checksum    string // lower-case hex SHA-256 of Data
 	ModTime     time.Time
 	// Gzip is the file's gzip form when the bundle holds the file in that
-	// form alone (RenderOptions.Gzip): Data is nil then, and Checksum and
-	// Size still describe the bytes Gzip decompresses to.
+	// form alone (RenderOptions.Gzip), which it does for feeds only: Data
+	// is nil then, Checksum still describes the bytes Gzip decompresses
+	// to, and the feed's FeedInfo.Bytes is their length.
 	Gzip []byte
-	// Size is the length of the file's bytes, len(Data) when Data is set.
-	Size int
 }
 
 // FeedInfo describes one feed in feeds.json and on the index page.

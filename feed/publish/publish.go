@@ -124,7 +124,7 @@ func (l *listing) manifest(sh Shard, digest string) (File, error) {
 	if err != nil {
 		return File{}, err
 	}
-	return File{Name: ManifestName(sh), ContentType: ContentTypeJSON, Data: b, Checksum: checksum(b), ModTime: l.generated, Size: len(b)}, nil
+	return File{Name: ManifestName(sh), ContentType: ContentTypeJSON, Data: b, Checksum: checksum(b), ModTime: l.generated}, nil
 }
 
 // runDigest fingerprints a run: the whole configuration's feed ids (every
@@ -355,7 +355,7 @@ func (w *Writer) shardListing(ctx context.Context, srcs []Source, opts *RenderOp
 	if err != nil {
 		return nil, false, err
 	}
-	return []File{{Name: FeedsJSONName, ContentType: ContentTypeJSON, Data: b, Checksum: checksum(b), ModTime: l.generated, Size: len(b)}}, false, nil
+	return []File{{Name: FeedsJSONName, ContentType: ContentTypeJSON, Data: b, Checksum: checksum(b), ModTime: l.generated}}, false, nil
 }
 
 // readManifests reads the manifests of every shard of n in dir that belong to

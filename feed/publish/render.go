@@ -257,7 +257,7 @@ func renderOne(ctx context.Context, s Source, enc encodeFunc, base *url.URL, dst
 		trimmedTo: cal.TrimmedTo,
 		site:      cal.Site,
 		src:       s,
-		file:      File{Name: name, ContentType: ContentTypeICS, Data: data, Checksum: sum, ModTime: cal.Stamp.UTC(), Size: len(data)},
+		file:      File{Name: name, ContentType: ContentTypeICS, Data: data, Checksum: sum, ModTime: cal.Stamp.UTC()},
 		data:      data,
 		stamp:     cal.Stamp,
 	}, nil
@@ -437,8 +437,8 @@ func (l *listing) indexFiles(ctx context.Context, opts *RenderOptions) ([]File, 
 		return nil, err
 	}
 	return []File{
-		{Name: FeedsJSONName, ContentType: ContentTypeJSON, Data: fj, Checksum: checksum(fj), ModTime: l.generated, Size: len(fj)},
-		{Name: IndexName, ContentType: ContentTypeHTML, Data: html, Checksum: checksum(html), ModTime: l.generated, Size: len(html)},
+		{Name: FeedsJSONName, ContentType: ContentTypeJSON, Data: fj, Checksum: checksum(fj), ModTime: l.generated},
+		{Name: IndexName, ContentType: ContentTypeHTML, Data: html, Checksum: checksum(html), ModTime: l.generated},
 	}, nil
 }
 

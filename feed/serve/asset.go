@@ -96,25 +96,25 @@ func modSince(prev *asset, sum string, mod time.Time) time.Time {
 }
 
 // heldAsset is the asset of a bundle's feed that the build kept in its
-// gzip form alone (publish.File.Gzip, made by a GzipFunc), modified at mod
-// unless prev holds the same bytes (see newAsset). Its sum is the one the
-// bundle states: the bytes are not at hand to hash again, and publish.Render
-// stated the sum of the bytes it gave the GzipFunc. What the gzip form says
-// of itself is checked: its header, and the length of its bytes its trailer
-// ends with (RFC 1952, ISIZE: modulo 2³²), which a request inflating it
-// relies on.
-func heldAsset(f *publish.File, mod time.Time, prev *asset) (*asset, error) {
+// gzip form alone (publish.File.Gzip, made by a GzipFunc), of size bytes
+// (its publish.FeedInfo.Bytes), modified at mod unless prev holds the same
+// bytes (see newAsset). Its sum is the one the bundle states: the bytes are
+// not at hand to hash again, and publish.Render stated the sum of the bytes
+// it gave the GzipFunc. What the gzip form says of itself is checked: its
+// header, and the length of its bytes its trailer ends with (RFC 1952,
+// ISIZE: modulo 2³²), which a request inflating it relies on.
+func heldAsset(f *publish.File, size int, mod time.Time, prev *asset) (*asset, error) {
 	sum := strings.ToLower(f.Checksum)
 	if len(sum) != 2*sha256.Size {
 		return nil, fmt.Errorf("serve: bundle file %q: held in its gzip form with checksum %q, not a SHA-256", f.Name, f.Checksum)
 	}
-	if f.Size <= 0 {
-		return nil, fmt.Errorf("serve: bundle file %q: held in its gzip form with size %d", f.Name, f.Size)
+	if size <= 0 {
+		return nil, fmt.Errorf("serve: bundle file %q: held in its gzip form with size %d (the bytes of its feed in Bundle.Feeds)", f.Name, size)
 	}
-	if n := len(f.Gzip); n < 18 || f.Gzip[0] != 0x1f || f.Gzip[1] != 0x8b || binary.LittleEndian.Uint32(f.Gzip[n-4:]) != uint32(f.Size) {
-		return nil, fmt.Errorf("serve: bundle file %q: held in a gzip form (%d bytes) that is not of its size, %d bytes", f.Name, len(f.Gzip), f.Size)
+	if n := len(f.Gzip); n < 18 || f.Gzip[0] != 0x1f || f.Gzip[1] != 0x8b || binary.LittleEndian.Uint32(f.Gzip[n-4:]) != uint32(size) {
+		return nil, fmt.Errorf("serve: bundle file %q: held in a gzip form (%d bytes) that is not of its size, %d bytes", f.Name, len(f.Gzip), size)
 	}
-	return assetOf(f.Name, f.ContentType, nil, f.Size, modSince(prev, sum, mod), sum, f.Gzip), nil
+	return assetOf(f.Name, f.ContentType, nil, size, modSince(prev, sum, mod), sum, f.Gzip), nil
 }
 
 // feedGzip is publish.RenderOptions.Gzip for a build that replaces prev
@@ -406,8 +406,10 @@ func prepare(b *publish.Bundle, prev *snapshot, now time.Time) (*snapshot, error
 	// the same after a reload that changes the feed: a client sending it
 	// in If-Modified-Since would keep the old feed).
 	mod := now.UTC().Truncate(time.Second)
+	sizes := make(map[string]int, len(b.Feeds)) // of the feeds held in their gzip form
 	for _, f := range b.Feeds {
 		s.events += f.Events
+		sizes[f.File] = f.Bytes
 	}
 	for i := range b.Files {
 		f := &b.Files[i]
@@ -435,7 +437,7 @@ func prepare(b *publish.Bundle, prev *snapshot, now time.Time) (*snapshot, error
 					p = prev.files[f.Name]
 				}
 				if f.Data == nil && f.Gzip != nil {
-					assets[i], errs[i] = heldAsset(f, mod, p)
+					assets[i], errs[i] = heldAsset(f, sizes[f.Name], mod, p)
 					continue
 				}
 				a := newAsset(f.Name, f.ContentType, f.Data, mod, p)

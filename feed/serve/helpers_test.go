@@ -85,7 +85,6 @@ func heldBy(b *publish.Bundle, gzip GzipFunc) *publish.Bundle {
 		if path.Ext(f.Name) != ".ics" {
 			continue // Render keeps feeds.json and index.html whole
 		}
-		f.Size = len(f.Data)
 		if f.Gzip = gzip(f); f.Gzip != nil {
 			f.Data = nil
 		}

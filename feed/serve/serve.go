@@ -58,9 +58,10 @@ type BuildFunc func(ctx context.Context, gzip GzipFunc) (*publish.Bundle, error)
 // held in that form alone, so that a build never holds every feed's bytes
 // at once. A Bundle rendered without it is served all the same: the server
 // compresses its files then. For a file held in its gzip form alone the
-// server takes the Checksum and Size the bundle states, unable to hash
-// bytes it does not hold: a File.Gzip is the GzipFunc's result for the
-// file, never a form made otherwise.
+// server takes the Checksum the bundle states, and the Bytes of the feed
+// whose File it is (Bundle.Feeds), unable to hash or count bytes it does
+// not hold: a File.Gzip is the GzipFunc's result for the file, never a
+// form made otherwise.
 type GzipFunc func(f *publish.File) []byte
 
 // AdhocFunc renders one ad-hoc feed for a validated query: it writes the

@@ -305,7 +305,7 @@ func TestFailedRefreshKeepsFeeds(t *testing.T) {
 	unsummed := heldBy(testBundle("b"), feedGzip(nil))
 	unsummed.Files[3].Checksum = "" // a feed held in its gzip form needs its sum: the bytes are not at hand
 	missized := heldBy(testBundle("b"), feedGzip(nil))
-	missized.Files[3].Size-- // its gzip form's trailer (RFC 1952, ISIZE) says one byte more
+	missized.Feeds[0].Bytes-- // meadowbrook-sun.ics: its gzip form's trailer (RFC 1952, ISIZE) says one byte more
 	notGzip := heldBy(testBundle("b"), feedGzip(nil))
 	notGzip.Files[3].Gzip = []byte(strings.Repeat("BEGIN:VCALENDAR\r\n", 4)) // no gzip header
 	for _, fail := range []func(){
@@ -907,7 +907,9 @@ func TestGunzipReaderStreams(t *testing.T) {
 // the handler allocates a request, against the feed's size.
 func TestRevalidatedHeldFeedNotCopied(t *testing.T) {
 	data := icsFor("meadowbrook-sun", 8000, "a") // about 1.1 MB, as a fleet feed
-	bundle := &publish.Bundle{Built: testBuilt, Files: []publish.File{file("meadowbrook-sun.ics", "text/calendar; charset=utf-8", data)}}
+	bundle := &publish.Bundle{Built: testBuilt,
+		Feeds: []publish.FeedInfo{{ID: "meadowbrook-sun", File: "meadowbrook-sun.ics", Events: 8000, Bytes: len(data)}},
+		Files: []publish.File{file("meadowbrook-sun.ics", "text/calendar; charset=utf-8", data)}}
 	s, _ := newTestServer(t, Options{Build: func(_ context.Context, gzip GzipFunc) (*publish.Bundle, error) { return heldBy(bundle, gzip), nil }})
 	if a := s.snap.Load().files["meadowbrook-sun.ics"]; a == nil || a.data != nil {
 		t.Fatal("the feed should be held in its gzip form alone")

@@ -2,6 +2,7 @@ package feed
 
 import (
 	"context"
+	"fmt"
 	"math"
 	"strings"
 	"testing"
@@ -270,6 +271,38 @@ func TestWeekdayRuleOnDateTheClocksSkip(t *testing.T) {
 			if got, want := e.Start.In(s.TimeZone.Location).Format(time.RFC3339), "2012-01-06T19:00:00+14:00"; got != want {
 				t.Errorf("%s: start %s, want %s", tc.rule, got, want)
 			}
+		}
+	}
+}
+
+// TestOffsetChanges: the changes of a zone's offset, past the zone data's
+// last transition and across the last day of a leap year, where Go's
+// ZoneBounds gives an end that does not move on (31 December 2040). zdump
+// -v Europe/Zurich (EU Directive 2000/84/EC: last Sunday of March and
+// October, 01:00 UTC): back to +1 on 28 October 2040, forward to +2 on 31
+// March 2041, back on 27 October 2041; Pacific/Apia: from −10 to +14 at
+// 10:00 UTC on 30 December 2011; UTC has none.
+func TestOffsetChanges(t *testing.T) {
+	for _, tc := range []struct {
+		zone, from, to string
+		want           []string
+	}{
+		{"Europe/Zurich", "2040-06-01", "2041-12-31", []string{
+			"2040-10-28T01:00:00Z 7200→3600", "2041-03-31T01:00:00Z 3600→7200", "2041-10-27T01:00:00Z 7200→3600"}},
+		{"Europe/Zurich", "2040-12-30", "2041-01-02", nil},
+		{"Pacific/Apia", "2011-12-01", "2012-01-31", []string{"2011-12-30T10:00:00Z -36000→50400"}},
+		{"UTC", "2000-01-01", "2100-01-01", nil},
+	} {
+		loc, err := time.LoadLocation(tc.zone)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var got []string
+		for ch := range OffsetChanges(loc, date(tc.from), date(tc.to)) {
+			got = append(got, fmt.Sprintf("%s %d→%d", ch.At.UTC().Format(time.RFC3339), ch.Before, ch.After))
+		}
+		if strings.Join(got, ", ") != strings.Join(tc.want, ", ") {
+			t.Errorf("%s %s..%s: %v, want %v", tc.zone, tc.from, tc.to, got, tc.want)
 		}
 	}
 }

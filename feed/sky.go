@@ -4,6 +4,7 @@ import (
 	"cmp"
 	"context"
 	"fmt"
+	"iter"
 	"slices"
 	"strconv"
 	"sync"
@@ -335,6 +336,44 @@ func midnight(d time.Time, loc *time.Location) time.Time {
 	return astro.DateStart(loc, d.Year(), d.Month(), d.Day())
 }
 
+// OffsetChange is a change of a zone's UTC offset: from At on, local
+// time is UTC + After seconds instead of UTC + Before.
+type OffsetChange struct {
+	At            time.Time
+	Before, After int
+}
+
+// OffsetChanges yields the changes of loc's UTC offset after from and
+// before to, in order (a change of the zone's abbreviation alone is none).
+// It walks time.Time.ZoneBounds, one period of the zone at a time, and
+// steps over a bound that does not move on: past the zone data's last
+// transition Go's ZoneBounds gives, in a leap year, 31 December 00:00 UTC
+// as the end of the period for the whole of that day (Go 1.26:
+// Europe/Zurich in 2040), so a walk that took it as the next start never
+// ended. That day is then stepped over whole, its offsets at both ends
+// compared (a change within it, which no zone has, would be given at its
+// end). The missing dates of a listing and the served tables' line of a
+// change of the clocks walk the changes here.
+func OffsetChanges(loc *time.Location, from, to time.Time) iter.Seq[OffsetChange] {
+	return func(yield func(OffsetChange) bool) {
+		_, before := from.In(loc).Zone()
+		for t := from; ; {
+			_, next := t.In(loc).ZoneBounds()
+			if !next.After(t) && !next.IsZero() {
+				next = t.Add(24 * time.Hour)
+			}
+			if next.IsZero() || !next.Before(to) {
+				return
+			}
+			_, after := next.In(loc).Zone()
+			if after != before && !yield(OffsetChange{At: next, Before: before, After: after}) {
+				return
+			}
+			t, before = next, after
+		}
+	}
+}
+
 // missingDates returns the local dates first..last (00:00 UTC) that do not
 // exist in loc, in order: dates the clocks jumped over whole, as
 // Pacific/Apia's did over 30 December 2011 (from 23:59:59 on the 29th,
@@ -342,49 +381,31 @@ func midnight(d time.Time, loc *time.Location) time.Time {
 // clocks jump over a date only by moving the offset forward by a day at
 // once (every such jump of the tz database: Apia, Fakaofo, Kiritimati,
 // Kanton, Kwajalein; Manila, Guam, Saipan, Palau, Chuuk, Pohnpei and Kosrae
-// at the end of 1844), so the dates are looked at one by one only
-// around a change of offset of 20 h or more forward. Each change in the
-// window is looked at, not only the offsets at its two ends: over
+// at the end of 1844), so the dates are looked at one by one only around a
+// change of offset of 20 h or more forward. Each change in the window is
+// looked at (OffsetChanges), not only the offsets at its two ends: over
 // 1960–2000 Kwajalein's went back almost a day in 1969 and forward one in
 // 1993.
-//
-// The changes are found with ZoneBounds, one period of the zone at a time,
-// and each step is a day at least: past the zone data's last transition
-// Go's ZoneBounds can give an end at or before the instant asked about
-// (Go 1.26, Europe/Zurich on 31 December 2040), which would never move
-// on. A step of a day compares the offsets at its two ends, so the loop
-// ends after as many steps as the window has days at most, and a jump of a
-// day is still seen (no zone moves its clocks twice within a day).
 func missingDates(loc *time.Location, first, last time.Time) []time.Time {
 	var out []time.Time
-	from, to := first.Add(-3*24*time.Hour), last.Add(3*24*time.Hour)
-	_, before := from.In(loc).Zone()
-	for t := from; t.Before(to); {
-		_, next := t.In(loc).ZoneBounds()
-		switch {
-		case next.IsZero() || next.After(to):
-			next = to // the offset holds to the window's end
-		case next.Before(t.Add(24 * time.Hour)):
-			next = t.Add(24 * time.Hour)
+	for ch := range OffsetChanges(loc, first.Add(-3*24*time.Hour), last.Add(3*24*time.Hour)) {
+		if ch.After-ch.Before < 20*3600 {
+			continue
 		}
-		_, after := next.In(loc).Zone()
-		if after-before >= 20*3600 {
-			// the dates from the one the clocks leave (the change is
-			// within the day before next) to the one they show after it
-			d, end := localDate(next.Add(-24*time.Hour), loc), localDate(next, loc)
-			if d.Before(first) {
-				d = first
-			}
-			if end.After(last) {
-				end = last
-			}
-			for ; !d.After(end); d = d.AddDate(0, 0, 1) {
-				if skipped(d, loc) {
-					out = append(out, d)
-				}
+		// the dates from the one the clocks leave to the one they show
+		// after the change
+		d, end := localDate(ch.At.Add(-time.Second), loc), localDate(ch.At, loc)
+		if d.Before(first) {
+			d = first
+		}
+		if end.After(last) {
+			end = last
+		}
+		for ; !d.After(end); d = d.AddDate(0, 0, 1) {
+			if skipped(d, loc) {
+				out = append(out, d)
 			}
 		}
-		t, before = next, after
 	}
 	return out
 }

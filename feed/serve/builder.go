@@ -695,17 +695,8 @@ func clockChange(d time.Time, loc *time.Location) string {
 	var said []string
 	// from two days before the date to three after it, as instants: the
 	// date's noon in loc may not exist (the clocks skip the whole date)
-	for t, to := d.Add(-48*time.Hour), d.Add(72*time.Hour); ; {
-		_, tr := t.In(loc).ZoneBounds()
-		if tr.IsZero() || !tr.Before(to) {
-			break
-		}
-		t = tr
-		_, before := tr.Add(-time.Second).Zone()
-		_, after := tr.Zone()
-		if before == after {
-			continue // a change of the zone's name alone
-		}
+	for ch := range feed.OffsetChanges(loc, d.Add(-48*time.Hour), d.Add(72*time.Hour)) {
+		tr, before, after := ch.At, ch.Before, ch.After
 		old, now := tr.In(time.FixedZone("", before)), tr.In(loc)
 		was, wasDate := old.Format("15:04"), old
 		if was == "00:00" && old.Format(time.DateOnly) != now.Format(time.DateOnly) {

@@ -357,6 +357,10 @@ func TestPreviewClockChange(t *testing.T) {
 		{"Australia/Sydney", "2027-04-03", []string{"", "Clocks go back from summer time by 1 h: 03:00 becomes 02:00", ""}},
 		{"Australia/Sydney", "2027-10-02", []string{"", "Clocks go forward for summer time by 1 h: 02:00 becomes 03:00", ""}},
 		{"UTC", "2027-03-13", []string{"", "", ""}},
+		// zdump -v Europe/Zurich: no change from 28 October 2040 to 31
+		// March 2041; Go's ZoneBounds gives 31 December 2040 as a bound
+		// for the whole of that day, which once held the table forever
+		{"Europe/Zurich", "2040-12-30", []string{"", "", ""}},
 		// zdump -v Pacific/Apia: 23:59:59 -10 on 29 December 2011, then
 		// 00:00:00 +14 on the 31st (isdst=1 on both sides); the 30th has
 		// no instant

@@ -1,6 +1,7 @@
 package config
 
 import (
+	"fmt"
 	"math"
 	"strconv"
 	"strings"
@@ -18,6 +19,11 @@ func coordinateHint(key, x string) string {
 	text := coordinateText[key]
 	v, ok := coordinateValue(key, x)
 	if !ok {
+		limit, pos, neg := coordinateAxis(key)
+		if f, read := readCoordinate(x, pos, neg); read && math.Abs(f) > limit {
+			// 95N: beyond the pole, a slip of the digits that no form fixes
+			return fmt.Sprintf("a %s is at most %g°, %s or %s: write %s", key, limit, pos, neg, text)
+		}
 		return "write " + text
 	}
 	return "write " + v + ": " + text[:strings.Index(text, ", e.g.")]
@@ -27,15 +33,21 @@ func coordinateHint(key, x string) string {
 // says, in the decimal degrees key takes ("-74" for "74.0W"); false when
 // x is none of these forms or is out of range.
 func coordinateValue(key, x string) (string, bool) {
-	limit, pos, neg := 90.0, "N", "S"
-	if key == "longitude" {
-		limit, pos, neg = 180, "E", "W"
-	}
+	limit, pos, neg := coordinateAxis(key)
 	v, ok := readCoordinate(x, pos, neg)
 	if !ok || math.Abs(v) > limit {
 		return "", false
 	}
 	return strconv.FormatFloat(v, 'f', -1, 64), true
+}
+
+// coordinateAxis is the largest value of key, latitude or longitude, in
+// degrees, and the letters of its positive and negative hemispheres.
+func coordinateAxis(key string) (limit float64, pos, neg string) {
+	if key == "longitude" {
+		return 180, "E", "W"
+	}
+	return 90, "N", "S"
 }
 
 // readCoordinate reads x as decimal degrees: at most three numbers

@@ -17,11 +17,13 @@ func TestCoordinateHint(t *testing.T) {
 		{"longitude", "74.0W", "write -74: decimal degrees, east positive, west negative"},
 		{"longitude", "9,7", "write 9.7: decimal degrees, east positive, west negative"},
 		{"latitude", "-33°27,5′", "write -33.458333: decimal degrees, north positive, south negative"},
-		// the letter of the other axis, a sign and a letter, out of range,
-		// minutes of 60, words: the plain hint
+		// beyond the pole or the date line: the range; the letter of the
+		// other axis, a sign and a letter, minutes of 60, words: the plain
+		// hint
 		{"latitude", "9.7E", "write " + LatitudeText},
 		{"longitude", "-74W", "write " + LongitudeText},
-		{"latitude", "95N", "write " + LatitudeText},
+		{"latitude", "95N", "a latitude is at most 90°, N or S: write " + LatitudeText},
+		{"longitude", "200 E", "a longitude is at most 180°, E or W: write " + LongitudeText},
 		{"latitude", "47°60′N", "write " + LatitudeText},
 		{"latitude", "4O.5", "write " + LatitudeText},
 		{"latitude", "north", "write " + LatitudeText},

@@ -163,7 +163,7 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 	v.SetConfigType(decodedAs)
 	if err := readConfig(v, decoded, doc); err != nil {
 		if format == "toml" {
-			if quoted, ok := quoteTOMLDates(data, decoded); ok {
+			if quoted, ok := quoteTOMLValues(data, decoded); ok {
 				return parse(quoted, format, env, dir)
 			}
 		}
@@ -909,12 +909,20 @@ func tomlSlip(msg string, data []byte, row int) string {
 		if hasEq && strings.Contains(key, " ") && !strings.ContainsAny(key, "\"'") {
 			return at("a key is written without spaces (write %s = %s)", strings.Join(strings.Fields(key), "_"), value)
 		}
-	case (key == "latitude" || key == "longitude") && strings.HasPrefix(msg, "toml: expected newline but got"):
-		// 47,5 or 74.0W, read as a number and then more: the decimal
-		// degrees they are, not 475 or 740
+	case (key == "latitude" || key == "longitude") && (strings.HasPrefix(msg, "toml: expected newline but got") || strings.Contains(msg, "unable to parse float")):
+		// 47,5 or 74.0W, read as a number and then more (8.5E as a
+		// number without its exponent): the decimal degrees they are,
+		// not 475 or 740
+		text := coordinateText[key]
 		if v, ok := coordinateValue(key, value); ok {
-			text := coordinateText[key]
 			return at("a coordinate is written in %s (write %s = %s)", text[:strings.Index(text, ", e.g.")], key, v)
+		}
+		if !strings.ContainsAny(value[:min(len(value), 1)], "\"'[{") {
+			hint := coordinateHint(key, value) // 95N: the range
+			if h, ok := strings.CutPrefix(hint, "write "); ok {
+				hint = "a coordinate is written in " + h
+			}
+			return at("%s", hint)
 		}
 	case strings.HasSuffix(msg, "expected newline but got U+002C ','") && thousands(value):
 		return at("a number is written without separators (write %s = %s)", key, strings.ReplaceAll(value, ",", ""))
@@ -973,22 +981,24 @@ func isBareDuration(w string) bool {
 	return err == nil
 }
 
-// quoteBudget bounds the bytes quoteTOMLDates has the TOML parser read
+// quoteBudget bounds the bytes quoteTOMLValues has the TOML parser read
 // again, once per value it quotes: a thousand values in a file of 32 kB,
 // a few in one of megabytes (hostile input is then refused as it is
 // written, without the time of a parse per value).
 const quoteBudget = 32 << 20
 
-// quoteTOMLDates puts in quotes each unquoted value written as a date that
+// quoteTOMLValues puts in quotes each unquoted value written as a date that
 // the TOML parser refuses ("2027-6-12", "27-06-12", "2027-02-30": TOML
 // dates are YYYY-MM-DD and exist), so that it is read as text and checked
 // as the same date written in YAML or JSON is: "feeds[0].kinds[0].dates[1]:
 // 2027-6-12: not a date (write it 2027-06-12)", with the field's path,
-// rather than a syntax error. decoded is data as the parser reads it (its
+// rather than a syntax error. A latitude or longitude written as people
+// write one elsewhere ("95N", "8.5E") is put in quotes too, and checked as
+// the same value in YAML is. decoded is data as the parser reads it (its
 // repeated keys blanked, the lines numbered as in data). It returns data
 // with the quotes, and whether the parser then reads it; false when a
 // refusal is of anything else, which is then reported as it is.
-func quoteTOMLDates(data, decoded []byte) (out []byte, ok bool) {
+func quoteTOMLValues(data, decoded []byte) (out []byte, ok bool) {
 	defer func() {
 		if recover() != nil {
 			out, ok = nil, false // hostile input: the reader reports it
@@ -1031,8 +1041,8 @@ func valueFrom(line []byte, col int) []byte {
 }
 
 // quoteAt puts in quotes the value written as a date that starts at line
-// row, column col (1-based, in bytes) of data; false when no such value
-// starts there.
+// row, column col (1-based, in bytes) of data, or the bare coordinate of
+// that line (bareCoordinate); false when there is neither.
 func quoteAt(data []byte, row, col int) ([]byte, bool) {
 	start := 0
 	for range row - 1 {
@@ -1050,16 +1060,47 @@ func quoteAt(data []byte, row, col int) ([]byte, bool) {
 		return nil, false
 	}
 	value := valueFrom(line, col)
+	quoted := append(append([]byte{'"'}, value...), '"')
 	if !isDateLike(string(value)) {
-		return nil, false
+		from, v, ok := bareCoordinate(line)
+		if !ok {
+			return nil, false
+		}
+		col, value = from+1, v
+		quoted = []byte(strconv.Quote(string(value)))
 	}
 	at := start + col - 1
-	out := make([]byte, 0, len(data)+2)
+	out := make([]byte, 0, len(data)+len(quoted))
 	out = append(out, data[:at]...)
-	out = append(out, '"')
-	out = append(out, value...)
-	out = append(out, '"')
+	out = append(out, quoted...)
 	return append(out, data[at+len(value):]...), true
+}
+
+// bareCoordinate is the value of a TOML line `latitude = …` or
+// `longitude = …` written without quotes as people write a coordinate
+// elsewhere ("95N", "8.5E", "47,5", "47°30′N"), which the TOML parser
+// refuses, and where it starts in line (from 0); false for other lines.
+// Put in quotes, the value is read as text and checked as the same value
+// written in YAML is: "sites[0].latitude: \"95N\": must be a number, not
+// text", with the hint of decimal degrees.
+func bareCoordinate(line []byte) (from int, value []byte, ok bool) {
+	eq := bytes.IndexByte(line, '=')
+	if eq < 0 {
+		return 0, nil, false
+	}
+	if key := strings.ToLower(strings.TrimSpace(string(line[:eq]))); key != "latitude" && key != "longitude" {
+		return 0, nil, false
+	}
+	value = bytes.TrimRight(line[eq+1:], "\r")
+	if i := bytes.IndexByte(value, '#'); i >= 0 {
+		value = value[:i] // a comment after the value: no coordinate has a #
+	}
+	from = eq + 1 + len(value) - len(bytes.TrimLeft(value, " \t"))
+	value = bytes.TrimSpace(value)
+	if len(value) == 0 || bytes.IndexAny(value[:1], "\"'[{") == 0 {
+		return 0, nil, false
+	}
+	return from, value, true
 }
 
 // yamlTabMessage names the line of a tab in YAML's indentation: the YAML

@@ -2,6 +2,7 @@ package config
 
 import (
 	"errors"
+	"fmt"
 	"strings"
 	"testing"
 )
@@ -131,13 +132,41 @@ func TestTOMLSyntaxSlips(t *testing.T) {
 		// a comma before one or two digits is a decimal comma: 9,7 is
 		// 9.7, not 97, which would be another place and pass the checks
 		"[[sites]]\nelevation = 4,5\n":                                  `line 2: elevation = 4,5: a number is written with a decimal point, not a comma (write elevation = 4.5)`,
-		"[[sites]]\nlongitude = 9,7\n":                                  `line 2: longitude = 9,7: a coordinate is written in decimal degrees, east positive, west negative (write longitude = 9.7)`,
-		"[[sites]]\nlongitude = 74.0W\n":                                `line 2: longitude = 74.0W: a coordinate is written in decimal degrees, east positive, west negative (write longitude = -74)`,
-		"[[sites]]\nlatitude = 47.5N\n":                                 `line 2: latitude = 47.5N: a coordinate is written in decimal degrees, north positive, south negative (write latitude = 47.5)`,
 		"[[sites]]\nname = 'O'Brien farm'\n":                            `line 2: name = 'O'Brien farm': the text in single quotes ends at its second ' (write it in double quotes: name = "O'Brien farm")`,
 		"[[sites]]\nname = \"North\nid = \"a\"\n":                       `line 2: name = "North: the text in quotes is not closed on its line (close it there, or write text of several lines in triple quotes: """…""")`,
 		"[[feeds]]\nkinds = [{kind = \"sunrise\",}]\n":                  `line 2: kinds = [{kind = "sunrise",}]: TOML has no comma after the last item of a mapping in braces {…}`,
 		"[[feeds]]\nkinds = [\"sunrise\", \"sunset\"\ndays_ahead = 3\n": `line 2: kinds = ["sunrise", "sunset": the list opened with [ is not closed with ] (its items are separated by commas)`,
+	} {
+		_, err := Parse(strings.NewReader(in), "toml")
+		if want = "cannot read the file as toml: " + want; !errors.Is(err, ErrUnreadable) || err.Error() != want {
+			t.Errorf("%q:\n%v\nwant\n%s", in, err, want)
+		}
+	}
+}
+
+// A latitude or longitude written in TOML as people write one elsewhere,
+// without quotes ("95N", "8.5E", "47,5"), which the TOML parser refuses,
+// is named with its file's line, its field and the value as written, with
+// the hint the same value gets in YAML: the decimal degrees to write, or,
+// beyond the pole, the range. With a syntax error of another kind further
+// down, the parser's first error is worded with the same hint.
+func TestTOMLCoordinateAsYAML(t *testing.T) {
+	for _, value := range []string{"95N", "47.3N", "8.5E", "47,5", "74.0W", "47°30'15\"N", "9 42 0 E", "200E"} {
+		for _, key := range []string{"latitude", "longitude"} {
+			other := map[string]string{"latitude": "longitude", "longitude": "latitude"}[key]
+			toml := fmt.Sprintf("[[sites]]\nid = \"a\"\n%s = %s # as written\n%s = 1\ntimezone = \"UTC\"\n", key, value, other)
+			yaml := fmt.Sprintf("sites:\n  - id: a\n    %s: %q\n    %s: 1\n    timezone: UTC\n", key, value, other)
+			_, terr := Parse(strings.NewReader(toml), "toml")
+			_, yerr := Parse(strings.NewReader(yaml), "yaml")
+			var tv, yv *ValidationError
+			if !errors.As(terr, &tv) || !errors.As(yerr, &yv) || len(tv.Problems) != 1 || terr.Error() != yerr.Error() || tv.Problems[0].Line != 3 {
+				t.Errorf("%s = %s:\ntoml: %v\nyaml: %v", key, value, terr, yerr)
+			}
+		}
+	}
+	for in, want := range map[string]string{
+		"[[sites]]\nlatitude = 95N\nname = \"North\n":   `line 2: latitude = 95N: a latitude is at most 90°, N or S: write decimal degrees, north positive, south negative, e.g. -42.88 for 42°52′48″S`,
+		"[[sites]]\nlongitude = 8.5E\nname = \"North\n": `line 2: longitude = 8.5E: a coordinate is written in decimal degrees, east positive, west negative (write longitude = 8.5)`,
 	} {
 		_, err := Parse(strings.NewReader(in), "toml")
 		if want = "cannot read the file as toml: " + want; !errors.Is(err, ErrUnreadable) || err.Error() != want {

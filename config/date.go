@@ -53,8 +53,18 @@ func DateHint(s string) string {
 	}
 	year, month, day := n[0], n[1], n[2]
 	switch {
+	case len(parts[2]) == 4 && len(parts[0]) <= 2 && len(parts[1]) <= 2:
+		return yearLastHint(s, n[0], n[1], n[2])
 	case len(parts[2]) == 4 && len(parts[0]) <= 2:
 		return "write YYYY-MM-DD, the year first, e.g. 2027-06-12"
+	case strings.Count(s, ".") == 2 && len(parts[0]) <= 2 && len(parts[1]) <= 2 && len(parts[2]) == 2 && validDate(2000+n[2], n[1], n[0]):
+		// 12.06.27, day.month.year as in Europe, or a year first
+		d := time.Date(2000+n[2], time.Month(n[1]), n[0], 0, 0, 0, 0, time.UTC)
+		if len(parts[0]) == 2 && validDate(2000+n[0], n[1], n[2]) && n[0] != n[2] {
+			return fmt.Sprintf("write YYYY-MM-DD, the year in full: %s for %s, %04d-%02d-%02d for %d %s %d",
+				d.Format(time.DateOnly), d.Format("2 January 2006"), 2000+n[0], n[1], n[2], n[2], time.Month(n[1]), 2000+n[0])
+		}
+		return d.Format("2 January 2006") + ": write it " + d.Format(time.DateOnly)
 	case len(parts[0]) == 2:
 		year += 2000
 	case len(parts[0]) != 4 || len(parts[1]) > 2 || len(parts[2]) > 2:
@@ -70,6 +80,44 @@ func DateHint(s string) string {
 		return fmt.Sprintf("write the year in full: %04d-%02d-%02d", year, month, day)
 	}
 	return fmt.Sprintf("write it %04d-%02d-%02d", year, month, day)
+}
+
+// yearLastHint says how to write s, a date written with its year last,
+// a and b its first two numbers: with dots it is day.month.year, as
+// German, Swiss and other European dates are written ("12.06.2027": "12
+// June 2027: write it 2027-06-12"); with - or / it is that too when a is
+// no month (a > 12), month-day-year when b is no month, and when both
+// may be months both readings are given to choose from.
+func yearLastHint(s string, a, b, year int) string {
+	const form = "write YYYY-MM-DD, the year first"
+	spell := func(m, d int) string {
+		return fmt.Sprintf("%d %s %d: write it %04d-%02d-%02d", d, time.Month(m), year, year, m, d)
+	}
+	dmy, mdy := validDate(year, b, a), validDate(year, a, b)
+	sep := s[strings.IndexAny(s, "-/.")]
+	switch {
+	case strings.Count(s, string(sep)) != 2: // "12.06-2027"
+	case sep == '.' && dmy:
+		return spell(b, a)
+	case sep == '.' && b >= 1 && b <= 12:
+		return fmt.Sprintf("%s %d has %d days", time.Month(b), year, daysIn(time.Month(b), year))
+	case sep == '.':
+		return "a month is 01..12: " + form + ", e.g. 2027-06-12"
+	case dmy && mdy && a != b:
+		return fmt.Sprintf("%s: %04d-%02d-%02d for %d %s, %04d-%02d-%02d for %d %s",
+			form, year, b, a, a, time.Month(b), year, a, b, b, time.Month(a))
+	case dmy:
+		return spell(b, a)
+	case mdy:
+		return spell(a, b)
+	}
+	return form + ", e.g. 2027-06-12"
+}
+
+// validDate reports whether year, month m and day d are a date of the
+// Gregorian calendar.
+func validDate(year, m, d int) bool {
+	return m >= 1 && m <= 12 && d >= 1 && d <= daysIn(time.Month(m), year)
 }
 
 // daysIn is the number of days of month m of year y (Gregorian calendar).

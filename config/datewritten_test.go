@@ -51,6 +51,7 @@ func TestDatesWrittenOneWay(t *testing.T) {
 		{"2027-02-30", "2027-02-30: not a date (February 2027 has 28 days)"},
 		{"27-06-12", "27-06-12: not a date (write the year in full: 2027-06-12)"},
 		{"2027-13-01", "2027-13-01: not a date (a month is 01..12: write YYYY-MM-DD, e.g. 2027-06-12)"},
+		{"12.06.2027", "12.06.2027: not a date (12 June 2027: write it 2027-06-12)"},
 	} {
 		for _, place := range []string{"dates", "plan"} {
 			path := "feeds[0].kinds[0].dates[1]"
@@ -114,6 +115,34 @@ func TestDatesWrittenOneWayEveryProblem(t *testing.T) {
 		}
 		if len(got) != 4 || !strings.HasPrefix(got[0], "sites[0].latitude: duplicate key") || strings.Join(got[1:], "\n") != strings.Join(want, "\n") {
 			t.Errorf("%s: problems\n%s\nwant the duplicate latitude, then\n%s", format, strings.Join(got, "\n"), strings.Join(want, "\n"))
+		}
+	}
+}
+
+// TestDateHintYearLast: a date written with its year last is given the
+// date to write. With dots it is day.month.year, as dates are written in
+// Germany, Switzerland and much of Europe (common practice); with - or /
+// the order is told by a number over 12, which is no month, and a date
+// that reads as two is given both to choose from. A two-digit year after
+// dots is 20YY, as a feed's window is around today. The days of the months
+// are the Gregorian calendar's (2028 is a leap year, 2027 is not).
+func TestDateHintYearLast(t *testing.T) {
+	for in, want := range map[string]string{
+		"12.06.2027": "12 June 2027: write it 2027-06-12",
+		"6.7.2027":   "6 July 2027: write it 2027-07-06",
+		"29.02.2028": "29 February 2028: write it 2028-02-29",
+		"29.02.2027": "February 2027 has 28 days",
+		"12.13.2027": "a month is 01..12: write YYYY-MM-DD, the year first, e.g. 2027-06-12",
+		"13/06/2027": "13 June 2027: write it 2027-06-13",
+		"06/13/2027": "13 June 2027: write it 2027-06-13",
+		"12-06-2027": "write YYYY-MM-DD, the year first: 2027-06-12 for 12 June, 2027-12-06 for 6 December",
+		"06/06/2027": "6 June 2027: write it 2027-06-06",
+		"12.06-2027": "write YYYY-MM-DD, the year first, e.g. 2027-06-12",
+		"6.7.27":     "6 July 2027: write it 2027-07-06",
+		"12.06.27":   "write YYYY-MM-DD, the year in full: 2027-06-12 for 12 June 2027, 2012-06-27 for 27 June 2012",
+	} {
+		if got := DateHint(in); got != want {
+			t.Errorf("%s: %q, want %q", in, got, want)
 		}
 	}
 }

@@ -1059,6 +1059,9 @@ func quoteAt(data []byte, row, col int) ([]byte, bool) {
 	if col < 1 || col > len(line) {
 		return nil, false
 	}
+	for col > 1 && bytes.IndexByte([]byte("0123456789-/."), line[col-2]) >= 0 {
+		col-- // the parser stops within 12.06.2027, at its second dot
+	}
 	value := valueFrom(line, col)
 	quoted := append(append([]byte{'"'}, value...), '"')
 	if !isDateLike(string(value)) {

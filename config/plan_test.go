@@ -69,7 +69,8 @@ func TestDateRuleWrittenOneWay(t *testing.T) {
 		{"every 2027-06-12", `"2027-06-12" is one date, not a date of every year`, `for that date alone, write it without "every"; for every year, "every MM-DD"`},
 		{"2027-6-12", "not a date", "write it 2027-06-12"},
 		{"2027/06/12", "not a date", "write it 2027-06-12"},
-		{"12-06-2027", "not a date", "write YYYY-MM-DD, the year first, e.g. 2027-06-12"},
+		{"12-06-2027", "not a date", "write YYYY-MM-DD, the year first: 2027-06-12 for 12 June, 2027-12-06 for 6 December"},
+		{"12.06.2027", "not a date", "12 June 2027: write it 2027-06-12"},
 		{"2028-02-30", "not a date", "February 2028 has 29 days"},
 		{"2201-01-01", "outside the supported range 1800-01-01..2200-12-31", "the sky is computed for these dates only"},
 	} {

@@ -238,12 +238,65 @@ func ParseDateRule(s string) (DateRule, error) {
 	f := strings.Fields(strings.ToLower(s))
 	r, err := parseDateRule(f)
 	if err != nil {
-		if near := nearRule(f); near != "" {
+		if en := englishRule(f); en != "" {
+			// "jeden Samstag", "chaque samedi": the rule in English
+			if f[0] == "every" {
+				err.Hint = fmt.Sprintf("weekdays are named in English: write %q", en)
+			} else {
+				err.Msg, err.Hint = "not a date rule", fmt.Sprintf("date rules are written in English: write %q", en)
+			}
+		} else if near := nearRule(f); near != "" {
 			err.Hint = didYouMean(near)
 		}
 		return DateRule{}, err
 	}
 	return r, nil
+}
+
+// everyWords are the words for "every" before a day in German, French,
+// Spanish and Italian ("jeden Samstag", "chaque samedi", "cada sábado",
+// "ogni sabato"); everyPairs are the two words of "every" before a day in
+// the plural ("tous les samedis", "todos los sábados").
+var (
+	everyWords = []string{"jeden", "jede", "jedes", "alle", "chaque", "cada", "ogni"}
+	everyPairs = []string{"tous les", "todos los", "tutti i", "tutte le"}
+)
+
+// dayWords are "day" and "days" in German, French, Spanish and Italian.
+var dayWords = []string{"tag", "tage", "jour", "jours", "día", "dia", "días", "dias", "giorno", "giorni"}
+
+// englishRule is the rule a date rule f (its words in lower case) written
+// in German, French, Spanish or Italian says in English: "every saturday"
+// for "jeden samstag", "chaque samedi", "tous les samedis", "every samstag"
+// or "samstags" (German for "on Saturdays"), "every day" for "jeden tag" or
+// "täglich"; "" when f is no such rule.
+func englishRule(f []string) string {
+	var day string
+	switch {
+	case len(f) == 1 && f[0] == "täglich":
+		day = "tag"
+	case len(f) == 1 && len(f[0]) > 3: // "samstag", "samstags"; not "sa"
+		day = f[0]
+	case len(f) == 2 && (f[0] == "every" || slices.Contains(everyWords, f[0])):
+		day = f[1]
+	case len(f) == 3 && slices.Contains(everyPairs, f[0]+" "+f[1]):
+		day = f[2]
+	default:
+		return ""
+	}
+	if slices.Contains(dayWords, day) {
+		return "every day"
+	}
+	for _, w := range []string{day, strings.TrimSuffix(day, "s")} {
+		if d, ok := ParseWeekday(w); ok && len(f) > 1 && f[0] != "every" {
+			return "every " + weekdayFull[d] // "jeden saturday"
+		}
+		if en, ok := foreignNames[w]; ok && en[:3] == "sun" {
+			d, _ := ParseWeekday(en[3:])
+			return "every " + weekdayFull[d]
+		}
+	}
+	return ""
 }
 
 // namedMonthDay reads a date of the year written with the month's name,
@@ -766,7 +819,7 @@ var foreignNames = func() map[string]string {
 		"wed": "mittwoch mi mercredi miércoles miercoles mercoledì mercoledi",
 		"thu": "donnerstag do jeudi jueves giovedì giovedi",
 		"fri": "freitag fr vendredi viernes venerdì venerdi",
-		"sat": "samstag sonnabend sa samedi sábado sabado",
+		"sat": "samstag sonnabend sa samedi sábado sabado sabato",
 	}, "jan": {
 		"jan": "januar jänner janvier enero gennaio",
 		"feb": "februar février fevrier febrero febbraio",

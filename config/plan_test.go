@@ -2,7 +2,9 @@ package config
 
 import (
 	"errors"
+	"fmt"
 	"slices"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -347,7 +349,7 @@ sites: [{id: a, latitude: 47.5, longitude: 9.7, timezone: Europe/Zurich}]
 feeds:
   - id: f
     site: a
-    kinds: [{kind: sunset, weekdays: [Samstag, Di, dimanche], months: [Dezember, août, Juni]}]
+    kinds: [{kind: sunset, weekdays: [Samstag, Di, dimanche, sabato], months: [Dezember, août, Juni]}]
 `), "yaml")
 	var got []string
 	for _, p := range problemsOf(t, err) {
@@ -357,12 +359,53 @@ feeds:
 		`Samstag: weekdays are named in English: write "sat"`,
 		`Di: weekdays are named in English: write "tue"`,
 		`dimanche: weekdays are named in English: write "sun"`,
-		`Dezember: did you mean "december"?`, // near in spelling: the English name
+		`sabato: weekdays are named in English: write "sat"`, // Italian
+		`Dezember: did you mean "december"?`,                 // near in spelling: the English name
 		`août: months are named in English: write "aug"`,
 		`Juni: did you mean "jun"?`,
 	}
 	if !slices.Equal(got, want) {
 		t.Errorf("hints:\n%s\nwant\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
+	}
+}
+
+// A plan's date rule written in German, French, Spanish or Italian, the
+// word for "every" with a day ("jeden Samstag" is German for "every
+// Saturday"), is told the rule to write in English, as the names of the
+// days are; so is a foreign day after "every" and German's "samstags" ("on
+// Saturdays"). Each is named at its line with its field.
+func TestDateRuleForeignEvery(t *testing.T) {
+	rules := []struct{ in, want string }{
+		{"jeden Samstag", `not a date rule (date rules are written in English: write "every saturday")`},
+		{"chaque samedi", `not a date rule (date rules are written in English: write "every saturday")`},
+		{"cada sábado", `not a date rule (date rules are written in English: write "every saturday")`},
+		{"ogni sabato", `not a date rule (date rules are written in English: write "every saturday")`},
+		{"tous les lundis", `not a date rule (date rules are written in English: write "every monday")`},
+		{"todos los domingos", `not a date rule (date rules are written in English: write "every sunday")`},
+		{"jeden Tag", `not a date rule (date rules are written in English: write "every day")`},
+		{"chaque jour", `not a date rule (date rules are written in English: write "every day")`},
+		{"samstags", `not a date rule (date rules are written in English: write "every saturday")`},
+		{"Freitag", `not a date rule (date rules are written in English: write "every friday")`},
+		{"every Samstag", `"samstag" is not a weekday, "day" or a date MM-DD (weekdays are named in English: write "every saturday")`},
+	}
+	doc := "sites: [{id: a, latitude: 47.5, longitude: 9.7, timezone: Europe/Zurich}]\nfeeds:\n  - id: f\n    site: a\n    plans:\n"
+	for _, r := range rules {
+		doc += fmt.Sprintf("      - {title: Open day, start: \"10:00\", date: %s}\n", r.in)
+	}
+	_, err := Parse(strings.NewReader(doc), "yaml")
+	var got, want []string
+	for _, p := range problemsOf(t, err) {
+		got = append(got, fmt.Sprintf("%d: %s", p.Line, p.Error()))
+	}
+	for i, r := range rules {
+		shown := r.in // in quotes when it has a space, as every value is shown
+		if strings.Contains(shown, " ") {
+			shown = strconv.Quote(shown)
+		}
+		want = append(want, fmt.Sprintf("%d: feeds[0].plans[%d].date: %s: %s", 6+i, i, shown, r.want))
+	}
+	if !slices.Equal(got, want) {
+		t.Errorf("problems\n%s\nwant\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
 	}
 }
 

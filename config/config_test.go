@@ -270,7 +270,7 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-color.yaml", "feeds[0].color", "goldenrood", "not a CSS3 colour name", `did you mean "goldenrod"?`, 0},
 		// a value that begins with # is a comment in YAML: the key is
 		// empty, which is said rather than a feed without its colour
-		{"bad-value-comment.yaml", "feeds[0].color", "", `is empty: "#ff8800" after it is a comment in YAML`, `color takes a CSS3 colour name, e.g. "steelblue", not a hex code`, 2},
+		{"bad-value-comment.yaml", "feeds[0].color", "", `is empty: "#ff8800" after it is a comment in YAML`, `color takes a CSS3 colour name, not a colour code: the nearest to #ff8800 is "darkorange" (#ff8c00)`, 2},
 		{"bad-value-comment.yaml", "sites[0].name", "", `is empty: "#1 field" after it is a comment in YAML`, `write it in quotes: name: "#1 field"`, 2},
 		{"bad-refresh.yaml", "service.refresh", "15 3 * *", "must have 5 fields, has 4", "minute hour", 0},
 		{"bad-refresh-field.yaml", "service.refresh", "61 3 * * *", "malformed cron expression", "", 0},

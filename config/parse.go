@@ -1975,7 +1975,9 @@ func commentValues(data []byte, places map[string]keyPlace) []FieldError {
 				continue
 			}
 			hint := fmt.Sprintf("write it in quotes: %s: %q", m[1], comment)
-			if key == "color" {
+			if _, _, code := readColor(comment); key == "color" && code {
+				hint = colorHint(comment) // the nearest name
+			} else if key == "color" {
 				hint = `color takes a CSS3 colour name, e.g. "steelblue", not a hex code`
 			}
 			out = append(out, FieldError{Path: path, Msg: fmt.Sprintf("is empty: %q after it is a comment in YAML", comment), Hint: hint})

@@ -651,8 +651,7 @@ func (f *Feed) validate(ps *problems, p string) {
 		ps.add(p+".days_ahead", strconv.Itoa(f.DaysAhead), fmt.Sprintf("%s (days_back %d + days_ahead %d) is over 10 years, %d days", window, f.DaysBack, f.DaysAhead, MaxWindowDays), "large feeds are dropped by some calendar apps; use 30 back and 365 ahead")
 	}
 	if f.Color != "" && !IsColorName(f.Color) {
-		ps.add(p+".color", f.Color, "not a CSS3 colour name",
-			nearValue(f.Color, cssColorNames, `a CSS3 colour name such as "goldenrod" or "steelblue"`))
+		ps.add(p+".color", f.Color, "not a CSS3 colour name", colorHint(f.Color))
 	}
 	checkAlarm(ps, p+".alarm", &f.Alarm, false)
 }

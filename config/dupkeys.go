@@ -49,8 +49,8 @@ func (k keyPlace) String() string {
 
 type dupFinder struct {
 	// seen is where each key is first written, by path with lower-case
-	// keys; in YAML each item of a list too ("feeds[0].kinds[2]"), which
-	// a problem's line is then read from
+	// keys; each item of a list too
+	// ("feeds[0].kinds[2]"), which a problem's line is then read from
 	seen     map[string]keyPlace
 	dups     map[string]bool // paths reported
 	problems []FieldError
@@ -133,7 +133,16 @@ func (d *dupFinder) json(data []byte) {
 			}
 		case json.Delim('['):
 			for i := 0; dec.More(); i++ {
-				if !walk(index(path, i)) {
+				item := index(path, i)
+				// the item's first character: past the end of the token
+				// before it, its comma and the white space around it
+				at := int(dec.InputOffset())
+				for at < len(data) && bytes.IndexByte([]byte(" \t\r\n,"), data[at]) >= 0 {
+					at++
+				}
+				line := bytes.Count(data[:at], []byte("\n")) + 1
+				d.seen[item] = keyPlace{line: line, col: at - bytes.LastIndexByte(data[:at], '\n')}
+				if !walk(item) {
 					return false
 				}
 			}
@@ -274,7 +283,12 @@ func (d *dupFinder) toml(data []byte) {
 		case unstable.Array:
 			i := 0
 			for it := v.Children(); it.Next(); i++ {
-				value(it.Node(), index(path, i))
+				item := index(path, i)
+				if n := it.Node(); n.Raw.Length > 0 { // a value written as text: a string, a number
+					at := p.Shape(n.Raw).Start
+					d.seen[item] = keyPlace{line: at.Line, col: at.Column}
+				}
+				value(it.Node(), item)
 			}
 		}
 	}

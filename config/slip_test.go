@@ -197,7 +197,8 @@ func TestJSONSyntaxSlips(t *testing.T) {
 	}
 }
 
-// Each problem carries the line its field is written on, in every format;
+// Each problem carries the line its field is written on, in every format
+// (an item of a list, its own line);
 // a field not written (a missing key), the line of the mapping it is
 // missing from; one set by the environment, none. The file's name is
 // followed by the line, as compilers write it.
@@ -213,6 +214,12 @@ func TestProblemLines(t *testing.T) {
 			nil, map[string]int{"sites[0].latitude": 3, "feeds[0].days_ahead": 11}},
 		{"json", "{\"sites\": [{\"id\": \"a\",\n \"latitude\": 95, \"longitude\": 9, \"timezone\": \"UTC\"}],\n \"feeds\": [{\"id\": \"f\", \"site\": \"a\", \"kinds\": [\"sunrise\"]}]}\n",
 			nil, map[string]int{"sites[0].latitude": 2}},
+		// a list's items each on their own line (JSON, TOML): each item's problem
+		// on its line, not on the line of the list's key
+		{"json", "{\"sites\": [{\"id\": \"a\", \"latitude\": 1, \"longitude\": 9, \"timezone\": \"UTC\"},\n  {\"id\": \"b\", \"latitude\": 1, \"longitude\": 9}],\n \"feeds\": [{\"id\": \"f\", \"site\": \"a\",\n  \"kinds\": [\n    \"sunrise\",\n    \"sunrize\",\n    {\"kind\": \"sunset\", \"weekdays\": [\"sat\",\n      \"Samstag\"]}],\n  \"plans\": [\n    {\"title\": \"x\", \"date\": \"every day\", \"start\": \"10:00\"},\n    {\n      \"title\": \"y\", \"start\": \"10:00\"}]}]}\n",
+			nil, map[string]int{"feeds[0].kinds[1]": 6, "feeds[0].kinds[2].weekdays[1]": 8, "feeds[0].plans[1].date": 11}},
+		{"toml", "[[sites]]\nid = \"a\"\nlatitude = 1\nlongitude = 2\ntimezone = \"UTC\"\n[[feeds]]\nid = \"f\"\nsite = \"a\"\nkinds = [\n  \"sunrise\",\n  \"sunrize\",\n  { kind = \"sunset\", weekdays = [\"sat\",\n    \"Samstag\"] },\n]\n",
+			nil, map[string]int{"feeds[0].kinds[1]": 11, "feeds[0].kinds[2].weekdays[1]": 13}},
 		{"yaml", "service:\n  listen: \":8080\"\nsites:\n  - {id: a, latitude: 95, longitude: 9, timezone: UTC}\nfeeds:\n  - {id: f, site: a, kinds: [sunrise]}\n",
 			map[string]string{"HELIOCAL_LISTEN": "nowhere"}, map[string]int{"service.listen": 0, "sites[0].latitude": 4}},
 	} {

@@ -2059,14 +2059,28 @@ func writtenAs(p FieldError, problems []FieldError) bool {
 // listIndex is the index of a list in a decoder path: "[0]".
 var listIndex = sync.OnceValue(func() *regexp.Regexp { return regexp.MustCompile(`\[[0-9]+\]`) })
 
-// shortKeys are the short names people write for a site's keys, from the
-// command line's flags (--lat, --lon, --elev, --tz) and other tools, which
+// shortKeys are the short names people write for the configuration's
+// keys, from the command line's flags (--lat, --lon, --elev, --tz,
+// --pressure, --temperature, --max-illumination) and other tools, which
 // are too far from the key for closest to take them for it: "lat" is three
 // letters of "latitude"'s eight.
 var shortKeys = map[string]string{
 	"lat": "latitude", "lon": "longitude", "lng": "longitude", "long": "longitude",
 	"elev": "elevation", "alt": "elevation", "altitude": "elevation", "height": "elevation",
 	"tz": "timezone", "zone": "timezone", "time_zone": "timezone",
+	"pressure": "pressure_hpa", "temperature": "temperature_c", "max-illumination": "max_illumination",
+}
+
+// ShortKey is the configuration's key that name, a command line flag's
+// name without its dashes or another tool's short name, stands for:
+// "latitude" for "lat" (--lat) or "lng", "elevation" for "elev", "timezone"
+// for "tz", "max_illumination" for "max-illumination"; false for any other
+// name. A key written so in the file is told the key to write, and a
+// flag's value that is no number is told how to write it in the words of
+// its key's hint (NumberTextHint).
+func ShortKey(name string) (key string, ok bool) {
+	key, ok = shortKeys[name]
+	return key, ok
 }
 
 // keySections are the places a key is written, with the words that name

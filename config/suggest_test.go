@@ -1,6 +1,7 @@
 package config
 
 import (
+	"slices"
 	"strings"
 	"testing"
 )
@@ -40,5 +41,31 @@ func TestIDSuggestionKeepsAccentedWords(t *testing.T) {
 	_, err := Parse(strings.NewReader("sites:\n  - {id: viña-aurora, latitude: -35.42, longitude: -71.65, timezone: America/Santiago}\n"), "yaml")
 	if err == nil || !strings.Contains(err.Error(), `"vina-aurora"`) {
 		t.Errorf("error %v, want the suggestion \"vina-aurora\"", err)
+	}
+}
+
+// The flags of the command line that give a configuration's value (--lat,
+// --lon, --elev, --tz, --pressure, --temperature, --max-illumination) stand
+// for its keys, and so do other tools' short names: one table, which the
+// file's "unknown key" hint and the flags' hints both read. Every key it
+// names is a key of the configuration.
+func TestShortKey(t *testing.T) {
+	for name, want := range map[string]string{
+		"lat": "latitude", "lon": "longitude", "elev": "elevation", "tz": "timezone",
+		"pressure": "pressure_hpa", "temperature": "temperature_c", "max-illumination": "max_illumination",
+		"lng": "longitude", "altitude": "elevation", "zone": "timezone",
+	} {
+		if got, ok := ShortKey(name); !ok || got != want {
+			t.Errorf("%s: %q, %v; want %q", name, got, ok, want)
+		}
+	}
+	if key, ok := ShortKey("latitude"); ok {
+		t.Errorf("latitude: %q, want no key: it is the key itself", key)
+	}
+	known := append(keysAt("sites"), keysAt("feeds.kinds")...)
+	for name, key := range shortKeys {
+		if !slices.Contains(known, key) {
+			t.Errorf("%s: %q is no key of a site or a kinds entry (%v)", name, key, known)
+		}
 	}
 }

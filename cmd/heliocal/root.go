@@ -285,22 +285,10 @@ func flagValueError(err error) error {
 	case "duration":
 		what = `not a duration (a number with a unit, e.g. "30s", "2m")`
 	}
-	if key, ok := flagKeys[iv.GetFlag().Name]; ok {
+	if key, ok := config.ShortKey(iv.GetFlag().Name); ok { // --lat: latitude
 		if hint := config.NumberTextHint(key, iv.GetValue()); hint != "" {
 			what += " (" + hint + ")"
 		}
 	}
 	return fmt.Errorf("--%s: %q: %s", iv.GetFlag().Name, iv.GetValue(), what)
-}
-
-// flagKeys are the configuration's keys of the numbers the flags give: a
-// value that is no number is told how to write it in the words of the
-// key's hint (config.NumberTextHint).
-var flagKeys = map[string]string{
-	"lat":              "latitude",
-	"lon":              "longitude",
-	"elev":             "elevation",
-	"pressure":         "pressure_hpa",
-	"temperature":      "temperature_c",
-	"max-illumination": "max_illumination",
 }

@@ -832,6 +832,13 @@ func tomlBareText(data []byte, row int) string {
 	if !ok || key == "" || value == "" || strings.ContainsAny(key, "[{\"'") {
 		return ""
 	}
+	if k := strings.ToLower(key); k != "latitude" && k != "longitude" && slices.Contains(numberKeys, k) && numberWithUnit(value) {
+		// elevation = 650m: the number, not "650m" in quotes (a
+		// coordinate's slips are tomlSlip's)
+		if hint := NumberTextHint(k, value); hint != "" {
+			return fmt.Sprintf("%s = %s: %s", key, value, hint)
+		}
+	}
 	// quoted says w in quotes when it is text written bare (a word that
 	// begins with a letter and is none of TOML's own words), yes and no as
 	// TOML's true and false, else w
@@ -992,12 +999,13 @@ const quoteBudget = 32 << 20
 // dates are YYYY-MM-DD and exist), so that it is read as text and checked
 // as the same date written in YAML or JSON is: "feeds[0].kinds[0].dates[1]:
 // 2027-6-12: not a date (write it 2027-06-12)", with the field's path,
-// rather than a syntax error. A latitude or longitude written as people
-// write one elsewhere ("95N", "8.5E") is put in quotes too, and checked as
-// the same value in YAML is. decoded is data as the parser reads it (its
-// repeated keys blanked, the lines numbered as in data). It returns data
-// with the quotes, and whether the parser then reads it; false when a
-// refusal is of anything else, which is then reported as it is.
+// rather than a syntax error. A number written as people write one
+// elsewhere ("95N", "8.5E", "650 m", "20%") is put in quotes too, and
+// checked as the same value in YAML is. decoded is data as the parser
+// reads it (its repeated keys blanked, the lines numbered as in data). It
+// returns data with the quotes, and whether the parser then reads it;
+// false when a refusal is of anything else, which is then reported as it
+// is.
 func quoteTOMLValues(data, decoded []byte) (out []byte, ok bool) {
 	defer func() {
 		if recover() != nil {
@@ -1041,8 +1049,9 @@ func valueFrom(line []byte, col int) []byte {
 }
 
 // quoteAt puts in quotes the value written as a date that starts at line
-// row, column col (1-based, in bytes) of data, or the bare coordinate of
-// that line (bareCoordinate); false when there is neither.
+// row, column col (1-based, in bytes) of data, or the value of a key that
+// takes a number written as elsewhere (bareNumber); false when there is
+// neither.
 func quoteAt(data []byte, row, col int) ([]byte, bool) {
 	start := 0
 	for range row - 1 {
@@ -1065,7 +1074,7 @@ func quoteAt(data []byte, row, col int) ([]byte, bool) {
 	value := valueFrom(line, col)
 	quoted := append(append([]byte{'"'}, value...), '"')
 	if !isDateLike(string(value)) {
-		from, v, ok := bareCoordinate(line)
+		from, v, ok := bareNumber(line, col)
 		if !ok {
 			return nil, false
 		}
@@ -1079,29 +1088,58 @@ func quoteAt(data []byte, row, col int) ([]byte, bool) {
 	return append(out, data[at+len(value):]...), true
 }
 
-// bareCoordinate is the value of a TOML line `latitude = …` or
-// `longitude = …` written without quotes as people write a coordinate
-// elsewhere ("95N", "8.5E", "47,5", "47°30′N"), which the TOML parser
-// refuses, and where it starts in line (from 0); false for other lines.
-// Put in quotes, the value is read as text and checked as the same value
-// written in YAML is: "sites[0].latitude: \"95N\": must be a number, not
-// text", with the hint of decimal degrees.
-func bareCoordinate(line []byte) (from int, value []byte, ok bool) {
-	eq := bytes.IndexByte(line, '=')
+// numberKeys are the keys whose value is a number and that a number
+// with its unit or written as elsewhere is given to ("650 m", "20%",
+// "95N"); the horizon, which may be text (a file's name), is not one.
+var numberKeys = []string{"latitude", "longitude", "elevation", "pressure_hpa", "temperature_c",
+	"days_back", "days_ahead", "low", "high", "max_illumination", "max_feed_bytes"}
+
+// numberWithUnit reports whether v is a number followed by its unit
+// ("650 m", "20%", "365 days", "5°"), not by other digits ("1,000").
+func numberWithUnit(v string) bool {
+	_, unit, _, err := numberAndUnit(v)
+	r, _ := utf8.DecodeRuneInString(unit)
+	return err == nil && (unicode.IsLetter(r) || r == '%' || r == '°')
+}
+
+// bareNumber is the value, written without quotes, of the key = value
+// whose value the TOML parser refused at column col (1-based, in bytes) of
+// line, when the key takes a number (numberKeys) and the value is one
+// written as people write it elsewhere, which TOML refuses: a coordinate
+// ("95N", "8.5E", "47,5", "47°30′N"), a number with its unit ("650 m",
+// "365 days", "20%"), a word ("high"); not a number with commas ("1,000",
+// "4,5"), which tomlSlip words. It returns where the value starts in line
+// (from 0); false for other values. Put in quotes, the value is read as
+// text and checked as the same value written in YAML is:
+// "sites[0].latitude: \"95N\": must be a number, not text", with the hint
+// of the number to write.
+func bareNumber(line []byte, col int) (from int, value []byte, ok bool) {
+	eq := bytes.LastIndexByte(line[:min(col-1, len(line))], '=')
 	if eq < 0 {
 		return 0, nil, false
 	}
-	if key := strings.ToLower(strings.TrimSpace(string(line[:eq]))); key != "latitude" && key != "longitude" {
+	before := bytes.TrimRight(line[:eq], " \t")
+	start := bytes.LastIndexAny(before, " \t,{") + 1
+	if !slices.Contains(numberKeys, strings.ToLower(string(before[start:]))) {
 		return 0, nil, false
 	}
-	value = bytes.TrimRight(line[eq+1:], "\r")
-	if i := bytes.IndexByte(value, '#'); i >= 0 {
-		value = value[:i] // a comment after the value: no coordinate has a #
+	inline := len(bytes.TrimSpace(before[:start])) > 0 // { kind = "dark-window", max_illumination = 20% }
+	from = eq + 1
+	for from < len(line) && (line[from] == ' ' || line[from] == '\t') {
+		from++
 	}
-	from = eq + 1 + len(value) - len(bytes.TrimLeft(value, " \t"))
-	value = bytes.TrimSpace(value)
-	if len(value) == 0 || bytes.IndexAny(value[:1], "\"'[{") == 0 {
+	end := from
+	for end < len(line) && line[end] != '#' && line[end] != '\r' && !(inline && (line[end] == ',' || line[end] == '}')) {
+		end++ // no number has a #: the comment after the value
+	}
+	value = bytes.TrimRight(line[from:end], " \t")
+	if len(value) == 0 || bytes.IndexByte([]byte("\"'[{"), value[0]) >= 0 || col-1 < from || col-1 > end {
 		return 0, nil, false
+	}
+	if key := strings.ToLower(string(before[start:])); key != "latitude" && key != "longitude" {
+		if v := string(value); strings.Contains(v, ",") && strings.Trim(v, "+-0123456789,") == "" {
+			return 0, nil, false // 1,000 or 4,5, which tomlSlip words
+		}
 	}
 	return from, value, true
 }

@@ -148,9 +148,10 @@ func TestTOMLSyntaxSlips(t *testing.T) {
 // without quotes ("95N", "8.5E", "47,5"), which the TOML parser refuses,
 // is named with its file's line, its field and the value as written, with
 // the hint the same value gets in YAML: the decimal degrees to write, or,
-// beyond the pole, the range. With a syntax error of another kind further
-// down, the parser's first error is worded with the same hint.
-func TestTOMLCoordinateAsYAML(t *testing.T) {
+// beyond the pole, the range; so is a number with its unit ("650 m",
+// "20%") where a number belongs. With a syntax error of another kind
+// further down, the parser's first error is worded with the same hint.
+func TestTOMLNumberAsYAML(t *testing.T) {
 	for _, value := range []string{"95N", "47.3N", "8.5E", "47,5", "74.0W", "47°30'15\"N", "9 42 0 E", "200E"} {
 		for _, key := range []string{"latitude", "longitude"} {
 			other := map[string]string{"latitude": "longitude", "longitude": "latitude"}[key]
@@ -164,9 +165,24 @@ func TestTOMLCoordinateAsYAML(t *testing.T) {
 			}
 		}
 	}
+	// a number with its unit, or a word, where a number belongs: as in
+	// YAML too, in a table and in a mapping in braces
+	const feed = "[[feeds]]\nid = \"f\"\nsite = \"a\"\n"
+	for in, want := range map[string]string{
+		"[[sites]]\nid = \"a\"\nlatitude = 1\nlongitude = 1\nelevation = 650 m\n":                                                        `sites[0].elevation: "650 m": must be a number, not text (write the number alone, without the unit: 650)`,
+		"[[sites]]\nid = \"a\"\nlatitude = 1\nlongitude = 1\nelevation = high # the top field\n":                                         `sites[0].elevation: "high": must be a number, not text (metres above sea level, e.g. 120)`,
+		"[[sites]]\nid = \"a\"\nlatitude = 1\nlongitude = 1\n" + feed + "kinds = [\"sunrise\"]\ndays_ahead = 365 days\n":                 `feeds[0].days_ahead: "365 days": must be a whole number, not text (write the number alone, without the unit: 365)`,
+		"[[sites]]\nid = \"a\"\nlatitude = 1\nlongitude = 1\n" + feed + "kinds = [{ kind = \"dark-window\", max_illumination = 20% }]\n": `feeds[0].kinds[0].max_illumination: "20%": must be a number, not text (write a fraction of 1: 0.2 for 20 %)`,
+	} {
+		_, err := Parse(strings.NewReader(in), "toml")
+		if got := problemLines(t, err); len(got) != 1 || got[0] != want {
+			t.Errorf("%q:\n%v\nwant\n%s", in, err, want)
+		}
+	}
 	for in, want := range map[string]string{
 		"[[sites]]\nlatitude = 95N\nname = \"North\n":   `line 2: latitude = 95N: a latitude is at most 90°, N or S: write decimal degrees, north positive, south negative, e.g. -42.88 for 42°52′48″S`,
 		"[[sites]]\nlongitude = 8.5E\nname = \"North\n": `line 2: longitude = 8.5E: a coordinate is written in decimal degrees, east positive, west negative (write longitude = 8.5)`,
+		"[[sites]]\nelevation = 650m\nname = \"North\n": `line 2: elevation = 650m: write the number alone, without the unit: 650`,
 	} {
 		_, err := Parse(strings.NewReader(in), "toml")
 		if want = "cannot read the file as toml: " + want; !errors.Is(err, ErrUnreadable) || err.Error() != want {

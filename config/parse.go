@@ -230,6 +230,17 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 			}
 		}
 	}
+	for i := range problems {
+		var n int
+		if problems[i].Msg != "unknown time zone" || !strings.HasPrefix(problems[i].Path, "sites[") {
+			continue
+		}
+		if _, err := fmt.Sscanf(problems[i].Path, "sites[%d].timezone", &n); err != nil || problems[i].Path != fmt.Sprintf("sites[%d].timezone", n) ||
+			n >= len(c.Sites) || n >= len(located) || !located[n][0] || !located[n][1] {
+			continue
+		}
+		problems[i].Hint = zoneHintAt(problems[i].Value, problems[i].Hint, c.Sites[n].Latitude, c.Sites[n].Longitude)
+	}
 	// The zones of sites without one are looked up only for a file
 	// without other problems; until then a missing zone is no problem.
 	inferred := len(problems) == 0

@@ -116,3 +116,27 @@ func loadZoneMap() (*zonePolygons, error) {
 	}
 	return newZonePolygons(names, shapes), nil
 }
+
+// zoneHintAt is the hint of name, a zone the tz database does not know
+// (hint is ZoneHint's), at a site at lat, lon: the zone in force there when
+// the name's spelling names no zone near it ("Europe/Geneva", Geneva being
+// on Europe/Zurich's time, is not "Europe/Kiev"), or is a UTC offset; a
+// misspelling of a few letters keeps its suggestion, with the zone at the
+// site beside it when that is another. hint when no zone is found there.
+func zoneHintAt(name, hint string, lat, lon float64) string {
+	z, err := ZoneAt(lat, lon)
+	if err != nil || hint == didYouMean(z) {
+		return hint
+	}
+	here := fmt.Sprintf("the zone at the site's latitude and longitude is %q", z)
+	near, misspelt := strings.CutPrefix(hint, "did you mean ")
+	switch {
+	case offsetHint(strings.TrimSpace(name)) != "":
+		return fmt.Sprintf("a UTC offset is not a time zone: %s, which follows its clock changes", here)
+	case misspelt && distance(strings.ToLower(strings.ReplaceAll(strings.TrimSpace(name), " ", "_")), strings.ToLower(strings.Trim(near, `"?`))) <= 2:
+		return hint + " " + here // Europe/Viena at a site in Bratislava
+	case misspelt || hint == ZoneHint(""):
+		return here + "; or leave timezone out, and it is taken from them"
+	}
+	return hint // typographic quotes: the name is right
+}

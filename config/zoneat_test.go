@@ -1,6 +1,7 @@
 package config
 
 import (
+	"fmt"
 	"slices"
 	"strings"
 	"sync"
@@ -259,6 +260,41 @@ func TestMissingZoneNoProblemBesideOthers(t *testing.T) {
 		ps := problemsOf(t, err)
 		if len(ps) != 1 || !strings.HasPrefix(ps[0].Path, "sites[0].") {
 			t.Errorf("%s: problems %v, want one, at sites[0]", bad, ps)
+		}
+	}
+}
+
+// A zone name the tz database does not know, at a site whose coordinates
+// are given, is told the zone in force there when its spelling names no
+// zone near it: "Europe/Geneva" is no name of the tz database, whose one
+// zone for Switzerland is Europe/Zurich (zone1970.tab: CH), and the zone
+// nearest in spelling, "Europe/Kiev", is another country's. A UTC offset is
+// told the place's zone; a misspelling of a letter or two keeps its
+// suggestion, with the zone at the site beside it when that is another
+// (Vienna and Zurich are both in the tz database's zone1970.tab, for AT
+// and CH); typographic quotes keep theirs.
+func TestUnknownZoneAtSite(t *testing.T) {
+	const here = `the zone at the site's latitude and longitude is "Europe/Zurich"`
+	for zone, want := range map[string]string{
+		"Europe/Geneva":   here + "; or leave timezone out, and it is taken from them",
+		"UTC+1":           "a UTC offset is not a time zone: " + here + ", which follows its clock changes",
+		"Europe/Zurik":    `did you mean "Europe/Zurich"?`,
+		"Europe/Viena":    `did you mean "Europe/Vienna"? ` + here,
+		"“Europe/Zurich”": `the quotes “ ” are typographic, part of the text: write "Europe/Zurich", in straight quotes, or without quotes`,
+	} {
+		// Geneva, 46.2044° N, 6.1432° E (from memory, well inside Switzerland)
+		doc := fmt.Sprintf("sites:\n  - {id: a, latitude: 46.2044, longitude: 6.1432, timezone: %q}\nfeeds:\n  - {id: f, site: a, kinds: [sunrise]}\n", zone)
+		_, err := Parse(strings.NewReader(doc), "yaml")
+		ps := problemsOf(t, err)
+		if len(ps) != 1 || ps[0].Msg != "unknown time zone" || ps[0].Hint != want {
+			t.Errorf("%s: %v\nwant the hint %s", zone, err, want)
+		}
+	}
+	// without coordinates, the spelling's suggestion alone
+	_, err := Parse(strings.NewReader("sites:\n  - {id: a, timezone: Europe/Geneva}\n"), "yaml")
+	for _, p := range problemsOf(t, err) {
+		if p.Path == "sites[0].timezone" && (p.Hint != ZoneHint("Europe/Geneva") || strings.Contains(p.Hint, "latitude")) {
+			t.Errorf("no coordinates: %v", p)
 		}
 	}
 }

@@ -6,6 +6,7 @@ import (
 	"strconv"
 	"strings"
 	"time"
+	"unicode"
 )
 
 // Kind is one event kind of the configuration vocabulary, parsed from its
@@ -180,6 +181,23 @@ func (e *KindError) Error() string {
 	return s
 }
 
+// severalKinds is each kind of text, several kinds written as one
+// ("sunrise, sunset", "sunrise sunset"), in quotes; nil when text is not
+// two kinds or more.
+func severalKinds(text string) []string {
+	parts := strings.FieldsFunc(text, func(r rune) bool { return r == ',' || r == ';' || unicode.IsSpace(r) })
+	if len(parts) < 2 {
+		return nil
+	}
+	for i, p := range parts {
+		if _, ok := kindIndex[p]; !ok {
+			return nil
+		}
+		parts[i] = strconv.Quote(p)
+	}
+	return parts
+}
+
 // ParseKind parses the written form of a kind: a name from KindNames, or
 // "sun-altitude:<deg>" (−90 < deg < 90) or "photoperiod:<duration>"
 // (0 < duration < 24h, Go duration syntax such as "14h30m"). Case and
@@ -195,6 +213,8 @@ func ParseKind(s string) (Kind, error) {
 		msg, hint := msgUnknownKind, "known kinds: "+strings.Join(KindNames, ", ")
 		if text == "" { // `kind: ""`, `kinds: [""]`: no value to name
 			msg = "is empty: name a kind"
+		} else if kinds := severalKinds(text); kinds != nil {
+			msg, hint = fmt.Sprintf("%d kinds in one entry", len(kinds)), "write each as an entry of its own: "+strings.Join(kinds, ", ")
 		} else if near := nearKind(text, KindNames); near != "" {
 			hint = didYouMean(near)
 		}

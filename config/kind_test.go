@@ -90,6 +90,10 @@ func TestParseKindErrors(t *testing.T) {
 		{"photoperoid:12h", "unknown kind", `did you mean "photoperiod:12h"?`},
 		{"sunaltitude", "unknown kind", `did you mean "sun-altitude:-3.5"?`},
 		{"tea-time", "unknown kind", "known kinds: sunrise, sunset"},
+		// several kinds in one text: each to write as its own entry
+		{"sunrise, sunset", "2 kinds in one entry", `write each as an entry of its own: "sunrise", "sunset"`},
+		{"Sunrise sunset civil-dusk", "3 kinds in one entry", `write each as an entry of its own: "sunrise", "sunset", "civil-dusk"`},
+		{"sunrise, tea-time", "unknown kind", "known kinds: sunrise, sunset"},
 		{"", "is empty: name a kind", "known kinds:"},
 		{"sunrise:5", "takes no parameter", `write "sunrise"`},
 		{"sun-altitude", "needs an altitude", ""},

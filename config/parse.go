@@ -190,6 +190,9 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 			written = yamlDocument(data)
 		}
 		for i := range problems {
+			if format == "toml" && problems[i].Msg == "unknown key" {
+				problems[i].Hint = tomlTableHint(settings, problems[i].Path, problems[i].Hint)
+			}
 			n := yamlScalarAt(written, problems[i].Path)
 			if n != nil && strings.HasSuffix(problems[i].Msg, "not a number") &&
 				(n.Tag == "!!int" || n.Tag == "!!float") && n.Style == 0 && n.Value != problems[i].Value {
@@ -1959,6 +1962,29 @@ func problemFor(path string, err error) []FieldError {
 	return []FieldError{{Path: shown, Msg: oneLine(msg)}}
 }
 
+// tomlTableHint is the hint of an unknown key at path of a TOML document
+// (settings, as decoded) written as a table with the name of a list of
+// tables near it, "[site]" for "[[sites]]": the header to write, in two
+// brackets, for hint's did-you-mean of the list's key, which followed alone
+// gives "[sites]", a table where a list belongs; hint otherwise.
+func tomlTableHint(settings map[string]any, path, hint string) string {
+	near, ok := strings.CutPrefix(hint, "did you mean ")
+	near = strings.Trim(near, `"?`)
+	if !ok || !slices.Contains([]string{"sites", "feeds", "kinds", "plans"}, near) {
+		return hint
+	}
+	if v, _ := valueAt(settings, path); !isMap(v) {
+		return hint
+	}
+	name := near
+	if i := strings.LastIndexByte(path, '.'); i >= 0 {
+		name = listIndex().ReplaceAllString(path[:i], "") + "." + near
+	}
+	return fmt.Sprintf("did you mean [[%s]]? %s", name, listHint("toml", name))
+}
+
+func isMap(v any) bool { _, ok := v.(map[string]any); return ok }
+
 // listHint says how the format writes a list of mappings, for one given
 // as a mapping at path ("sites", "feeds[0].kinds"): TOML's [[sites]] with
 // two brackets, where [sites] is one table.
@@ -2167,12 +2193,26 @@ func keyElsewhere(key string) string {
 // as "sites[1]" or "feeds[0].kinds" in the settings read (keys in any
 // case); "" when there is none there or it is a mapping or a list.
 func rawAt(v any, path string) string {
+	v, ok := valueAt(v, path)
+	if !ok {
+		return ""
+	}
+	switch v.(type) {
+	case map[string]any, []any, nil:
+		return ""
+	}
+	return showValue(v)
+}
+
+// valueAt is the value at path ("feeds[0].kinds[2]") of v, a document as
+// decoded, its keys in any case; false when there is none.
+func valueAt(v any, path string) (any, bool) {
 	for _, seg := range strings.Split(path, ".") {
 		name, idx, _ := strings.Cut(seg, "[")
 		if name != "" {
 			m, ok := v.(map[string]any)
 			if !ok {
-				return ""
+				return nil, false
 			}
 			found := false
 			for k, x := range m {
@@ -2182,7 +2222,7 @@ func rawAt(v any, path string) string {
 				}
 			}
 			if !found {
-				return ""
+				return nil, false
 			}
 		}
 		for idx != "" {
@@ -2190,16 +2230,12 @@ func rawAt(v any, path string) string {
 			i, err := strconv.Atoi(n)
 			list, ok := v.([]any)
 			if err != nil || !ok || i < 0 || i >= len(list) {
-				return ""
+				return nil, false
 			}
 			v, idx = list[i], strings.TrimPrefix(rest, "[")
 		}
 	}
-	switch v.(type) {
-	case map[string]any, []any, nil:
-		return ""
-	}
-	return showValue(v)
+	return v, true
 }
 
 // keysAt lists the keys allowed at a decoder path such as "feeds[2].kinds[0]".

@@ -289,3 +289,25 @@ func TestNumberNamedAsWritten(t *testing.T) {
 		}
 	}
 }
+
+// A TOML table named near a list of tables, [site] for [[sites]], is told
+// the header to write in two brackets: the key's name alone, [sites],
+// would be a table where a list belongs. A value of that name is told the
+// key only.
+func TestTOMLTableNearList(t *testing.T) {
+	const site = "[[sites]]\nid = \"a\"\nlatitude = 1\nlongitude = 1\n"
+	for in, want := range map[string]string{
+		"[site]\nid = \"a\"\nlatitude = 1\nlongitude = 1\n":                                                `site: unknown key (did you mean [[sites]]? in TOML each entry of the list begins with [[sites]], in two brackets)`,
+		site + "[[feeds]]\nid = \"f\"\nsite = \"a\"\nkinds = [\"sunrise\"]\n[feeds.plan]\ntitle = \"x\"\n": `feeds[0].plan: unknown key (did you mean [[feeds.plans]]? in TOML each entry of the list begins with [[feeds.plans]], in two brackets)`,
+		site + "[[feeds]]\nid = \"f\"\nsite = \"a\"\nkind = [\"sunrise\"]\n":                               `feeds[0].kind: unknown key (did you mean "kinds"?)`,
+	} {
+		_, err := Parse(strings.NewReader(in), "toml")
+		var found bool
+		for _, p := range problemLines(t, err) {
+			found = found || p == want
+		}
+		if !found {
+			t.Errorf("%q:\n%v\nwant the problem\n%s", in, err, want)
+		}
+	}
+}

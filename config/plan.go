@@ -359,7 +359,11 @@ func parseDateRule(f []string) (DateRule, *RuleError) {
 			return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is not a date of the year: MM-DD is a month 01..12, then a day that month has", f[1]),
 				Hint: hint}
 		}
-		return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is not a weekday, \"day\" or a date MM-DD", f[1]), Hint: `e.g. "every friday" or "every 04-25"`}
+		hint := `e.g. "every friday" or "every 04-25"`
+		if m, d, ok := dayOfYear(f[1]); ok && strings.Contains(f[1], ".") { // "every 25.12.", day first
+			hint = fmt.Sprintf(`every year on %d %s: write "every %02d-%02d"`, d, time.Month(m), m, d)
+		}
+		return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q is not a weekday, \"day\" or a date MM-DD", f[1]), Hint: hint}
 	case len(f) == 1 && (isDateLike(f[0]) || isDateTime(f[0])):
 		// a date with a time of day (YAML's unquoted 2027-06-12T10:00:00)
 		// is refused as a date, with the date to write

@@ -55,7 +55,8 @@ func TestParseDateRule(t *testing.T) {
 // TestDateRuleWrittenOneWay: a plan's yearly date is written MM-DD and its
 // one date YYYY-MM-DD, as a dates list's dates are; written otherwise the
 // hint gives the rule as it should be written (29 February exists in leap
-// years, so "every 2-29" is "every 02-29").
+// years, so "every 2-29" is "every 02-29"); a date of the year written day
+// first, after "every", is the month first.
 func TestDateRuleWrittenOneWay(t *testing.T) {
 	for _, tc := range []struct{ in, msg, hint string }{
 		{"every 6-12", `"6-12" is not a date of the year written MM-DD`, `write it "every 06-12"`},
@@ -68,6 +69,7 @@ func TestDateRuleWrittenOneWay(t *testing.T) {
 		{"every feb 29", `"every" takes one word, a weekday, "day" or a date MM-DD, not "feb 29"`, `write the date MM-DD: "every 02-29"`},
 		{"every 25 April", `"every" takes one word, a weekday, "day" or a date MM-DD, not "25 april"`, `write the date MM-DD: "every 04-25"`},
 		{"every 30 feb", `"every" takes one word, a weekday, "day" or a date MM-DD, not "30 feb"`, `e.g. "every friday" or "every 04-25"; an event's dates alone: "full-moon"`}, // no such date
+		{"every 25.12.", `"25.12." is not a weekday, "day" or a date MM-DD`, `every year on 25 December: write "every 12-25"`},
 		{"every 2027-06-12", `"2027-06-12" is one date, not a date of every year`, `for that date alone, write it without "every"; for every year, "every MM-DD"`},
 		{"2027-6-12", "not a date", "write it 2027-06-12"},
 		{"2027/06/12", "not a date", "write it 2027-06-12"},

@@ -959,6 +959,26 @@ func TestResolve(t *testing.T) {
 	}
 }
 
+// A refresh written as a word of cron's without its @ ("daily", "every
+// 6h") is told the schedule with it; one that is no such word, or whose @
+// form would fire too often, gets the form of five fields.
+func TestRefreshWithoutAt(t *testing.T) {
+	const fields = `five fields: minute hour day-of-month month day-of-week, e.g. "15 3 * * *" for 03:15 every night`
+	for refresh, want := range map[string]string{
+		"daily":    `did you mean "@daily"?`,
+		"Hourly":   `did you mean "@hourly"?`,
+		"every 6h": `did you mean "@every 6h"?`,
+		"every 1s": fields,
+		"nightly":  fields,
+	} {
+		_, err := Parse(strings.NewReader("service:\n  refresh: "+refresh+"\nsites: [{id: a, latitude: 1, longitude: 2, timezone: UTC}]\nfeeds: [{id: f, site: a, kinds: [sunrise]}]\n"), "yaml")
+		ps := problemsOf(t, err)
+		if len(ps) != 1 || ps[0].Path != "service.refresh" || ps[0].Hint != want {
+			t.Errorf("%s: %v\nwant the hint %s", refresh, err, want)
+		}
+	}
+}
+
 // Schedules that fire at most once a minute, however rarely, are accepted:
 // the check refuses only those that never fire or fire more often.
 func TestRefreshSchedulesAccepted(t *testing.T) {

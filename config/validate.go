@@ -302,7 +302,11 @@ func (s *Service) validate(ps *problems) {
 	}
 	if s.Refresh != "" {
 		if msg := checkCron(s.Refresh); msg != "" {
-			ps.add("service.refresh", s.Refresh, msg, `five fields: minute hour day-of-month month day-of-week, e.g. "15 3 * * *" for 03:15 every night`)
+			hint := `five fields: minute hour day-of-month month day-of-week, e.g. "15 3 * * *" for 03:15 every night`
+			if at := "@" + strings.ToLower(strings.TrimSpace(s.Refresh)); checkCron(at) == "" && checkCronFires(at, time.Now()) == "" {
+				hint = didYouMean(at) // daily, every 6h: "@daily", "@every 6h"
+			}
+			ps.add("service.refresh", s.Refresh, msg, hint)
 		} else if msg := checkCronFires(s.Refresh, time.Now()); msg != "" {
 			ps.add("service.refresh", s.Refresh, msg, `e.g. "15 3 * * *" for 03:15 every night, or "@every 6h"`)
 		}

@@ -52,6 +52,12 @@ func durationHint(s string) string {
 			return fmt.Sprintf(`the units are h, m and s: write "%s" for %s`, w, s)
 		}
 	}
+	if w := strings.Join(strings.Fields(s), ""); w != s && isBareDuration(w) { // 1h 30m
+		return fmt.Sprintf(`write it without spaces: "%s"`, w)
+	}
+	if strings.HasSuffix(strings.TrimRight(s, "0123456789"), "h") && isBareDuration(s+"m") { // 1h30: the minutes' unit left out
+		return fmt.Sprintf(`the minutes need their unit too: write "%sm"`, s)
+	}
 	if m := wordDuration().FindStringSubmatch(s); m != nil { // 30 min, 2 hours
 		return fmt.Sprintf(`the units are h, m and s: write "%s%s" for %s`, m[1], strings.ToLower(m[2][:1]), s)
 	}

@@ -2496,7 +2496,7 @@ func IlluminationHint(x string) string {
 // nameHint says how to write a value that is not text where key holds
 // text: a month's or a weekday's name for a number in months or weekdays,
 // a clock time "HH:MM" for a number or a TOML time where a time of day
-// belongs (`write it "23:00"` for 2300 and for 23), ":8080" for a port
+// belongs (`write it "23:00"` for 2300 and for 23, "17:30" for 17.30), ":8080" for a port
 // alone where host:port belongs; "" for other keys and values.
 func nameHint(key string, v any) string {
 	clock := key == "latest_off" || key == "earliest_on" || key == "start" || key == "end"
@@ -2514,6 +2514,9 @@ func nameHint(key string, v any) string {
 	case uint64:
 		n = int64(x)
 	case float64:
+		if h, m := math.Trunc(x), math.Round((x-math.Trunc(x))*100); clock && x != h && x > 0 && h < 24 && m < 60 {
+			return fmt.Sprintf(`write it "%02.0f:%02.0f"`, h, m) // 17.30, read as the number 17.3
+		}
 		if x != math.Trunc(x) || math.Abs(x) > 1e6 {
 			return ""
 		}

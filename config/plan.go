@@ -620,12 +620,24 @@ func clockDigitsHint(s, hint string) string {
 			return fmt.Sprintf(`the clock has 24 hours: write it "%02d:%02d"`, h, mm)
 		}
 	}
+	if m := clockOtherMark().FindStringSubmatch(strings.ToLower(s)); m != nil { // 17.30, 17h30, 17:30:00
+		if h, _ := strconv.Atoi(m[1]); h <= 23 {
+			return fmt.Sprintf(`write it "%02d:%s"`, h, m[2]+m[3])
+		}
+	}
 	n, err := strconv.Atoi(s)
 	if err != nil || len(s) < 3 || len(s) > 4 || s[0] == '+' || s[0] == '-' || n/100 > 23 || n%100 > 59 {
 		return hint
 	}
 	return fmt.Sprintf(`write it "%02d:%02d"`, n/100, n%100)
 }
+
+// clockOtherMark is a clock time of the 24-hour clock written with a dot,
+// an h or a space between its hours and minutes ("17.30", "17h30", as in
+// French, "17 30"), or with its seconds ("17:30:00").
+var clockOtherMark = sync.OnceValue(func() *regexp.Regexp {
+	return regexp.MustCompile(`^([0-9]{1,2})(?:[.h ]([0-5][0-9])|:([0-5][0-9]):[0-5][0-9])$`)
+})
 
 // twelveHour is a clock time of the 12-hour clock: "11:30 pm", "9pm",
 // "8.15 p.m.".

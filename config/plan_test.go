@@ -110,8 +110,8 @@ func TestParseTimeSpec(t *testing.T) {
 	}
 }
 
-// A plan time written with the 12-hour clock or with its offset in words
-// gets the time to write; the problem names the value once, so an unknown
+// A plan time written with the 12-hour clock, with another mark than the
+// colon, or with its offset in words gets the time to write; the problem names the value once, so an unknown
 // kind that is the whole value is not repeated in the message.
 func TestPlanTimeWrittenOtherwise(t *testing.T) {
 	for _, tc := range []struct{ in, msg, hint string }{
@@ -121,6 +121,14 @@ func TestPlanTimeWrittenOtherwise(t *testing.T) {
 		{"12:15 PM", "not a clock time", `the clock has 24 hours: write it "12:15"`},
 		{"8.15 p.m.", "not a clock time", `the clock has 24 hours: write it "20:15"`},
 		{"13pm", "not a clock time", `write HH:MM (00:00..23:59), e.g. "20:00"`},
+		// the hours and minutes apart with a dot (German, Scandinavian), an
+		// h (French) or a space, or the seconds written too
+		{"17.30", "not a clock time", `write it "17:30"`},
+		{"7.05", "not a clock time", `write it "07:05"`},
+		{"17h30", "not a clock time", `write it "17:30"`},
+		{"17 30", "not a clock time", `write it "17:30"`},
+		{"17:30:00", "not a clock time", `write it "17:30"`},
+		{"25.30", "not a clock time", `write HH:MM (00:00..23:59), e.g. "20:00"`},
 		{"sunset + 30 min", "malformed offset", `did you mean "sunset+30m"?`},
 		{"Sunset - 2 hours", "malformed offset", `did you mean "sunset-2h"?`},
 		{"sun set", "unknown kind", `did you mean "sunset"?`},
@@ -408,6 +416,32 @@ func TestDateRuleForeignEvery(t *testing.T) {
 	}
 	if !slices.Equal(got, want) {
 		t.Errorf("problems\n%s\nwant\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
+	}
+}
+
+// A clock time where a time of day belongs, written without quotes with a
+// dot (start: 17.30), is the number 17.3 to YAML and TOML: it is told the
+// time to write, as the same text in quotes is. A duration whose minutes
+// have no unit, or written with spaces, is told the duration to write.
+func TestClockAsNumberAndDurationSlips(t *testing.T) {
+	for format, doc := range map[string]string{
+		"yaml": "sites: [{id: a, latitude: 1, longitude: 2, timezone: UTC}]\nfeeds:\n  - id: f\n    site: a\n    plans:\n      - {title: a, date: every day, start: 17.30, for: 1h30}\n      - {title: b, date: every day, start: \"17.30\", for: 1h 30m}\n",
+		"toml": "[[sites]]\nid = \"a\"\nlatitude = 1\nlongitude = 2\ntimezone = \"UTC\"\n[[feeds]]\nid = \"f\"\nsite = \"a\"\n[[feeds.plans]]\ntitle = \"a\"\ndate = \"every day\"\nstart = 17.30\nfor = \"1h30\"\n[[feeds.plans]]\ntitle = \"b\"\ndate = \"every day\"\nstart = \"17.30\"\nfor = \"1h 30m\"\n",
+	} {
+		_, err := Parse(strings.NewReader(doc), format)
+		var got []string
+		for _, p := range problemsOf(t, err) {
+			got = append(got, p.Path+": "+p.Hint)
+		}
+		want := []string{
+			`feeds[0].plans[0].start: write it "17:30"`,
+			`feeds[0].plans[0].for: the minutes need their unit too: write "1h30m"`,
+			`feeds[0].plans[1].start: write it "17:30"`,
+			`feeds[0].plans[1].for: write it without spaces: "1h30m"`,
+		}
+		if !slices.Equal(got, want) {
+			t.Errorf("%s: hints\n%s\nwant\n%s", format, strings.Join(got, "\n"), strings.Join(want, "\n"))
+		}
 	}
 }
 

@@ -3,6 +3,7 @@ package config
 import (
 	"fmt"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 	"time"
@@ -233,7 +234,11 @@ func ParseKind(s string) (Kind, error) {
 		}
 		deg, err := strconv.ParseFloat(param, 64)
 		if err != nil || math.IsNaN(deg) || math.IsInf(deg, 0) {
-			return Kind{}, &KindError{Value: s, Msg: "malformed altitude", Hint: `write degrees as a decimal number, e.g. "sun-altitude:-3.5"`}
+			hint := `write degrees as a decimal number, e.g. "sun-altitude:-3.5"`
+			if num, unit, _, err := numberAndUnit(param); err == nil && slices.Contains(numberUnits["low"], unit) {
+				hint = didYouMean(KindSunAltitude + ":" + num) // sun-altitude:30°
+			}
+			return Kind{}, &KindError{Value: s, Msg: "malformed altitude", Hint: hint}
 		}
 		if !(deg > -90 && deg < 90) {
 			return Kind{}, &KindError{Value: s, Msg: "altitude must be above -90 and below 90", Hint: "civil twilight is -6, the horizon 0"}

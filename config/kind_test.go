@@ -103,6 +103,8 @@ func TestParseKindErrors(t *testing.T) {
 		{"sun-altitude:NaN", "malformed altitude", ""},
 		{"sun-altitude:inf", "malformed altitude", ""},
 		{"sun-altitude:six", "malformed altitude", ""},
+		{"sun-altitude:30°", "malformed altitude", `did you mean "sun-altitude:30"?`},
+		{"sun-altitude:-6 deg", "malformed altitude", `did you mean "sun-altitude:-6"?`},
 		{"photoperiod", "needs a day length", ""},
 		{"photoperiod:12", "malformed day length", ""},
 		{"photoperiod:0s", "longer than 0 and shorter than 24h", ""},

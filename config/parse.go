@@ -193,6 +193,11 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 			if format == "toml" && problems[i].Msg == "unknown key" {
 				problems[i].Hint = tomlTableHint(settings, problems[i].Path, problems[i].Hint)
 			}
+			if format == "toml" && strings.HasSuffix(problems[i].Msg, "not a number") {
+				if w := tomlNumberAt(data, places, problems[i].Path); w != "" {
+					problems[i].Value = w // start = 17.30 as written, not 17.3
+				}
+			}
 			n := yamlScalarAt(written, problems[i].Path)
 			if n != nil && strings.HasSuffix(problems[i].Msg, "not a number") &&
 				(n.Tag == "!!int" || n.Tag == "!!float") && n.Style == 0 && n.Value != problems[i].Value {
@@ -1960,6 +1965,24 @@ func problemFor(path string, err error) []FieldError {
 		return out
 	}
 	return []FieldError{{Path: shown, Msg: oneLine(msg)}}
+}
+
+// tomlNumberAt is the number written at path in TOML data, as written
+// ("17.30", "1e3"), read from the line of its key (places); "" when that
+// line does not hold the key = a number.
+func tomlNumberAt(data []byte, places map[string]keyPlace, path string) string {
+	at, ok := places[strings.ToLower(path)]
+	l, found := lineAt(data, at.line)
+	if !ok || !found || at.col < 1 || at.col > len(l) {
+		return ""
+	}
+	_, rest, ok := strings.Cut(string(l[at.col-1:]), "=")
+	rest = strings.TrimLeft(rest, " \t")
+	value := string(valueFrom([]byte(rest), 1))
+	if !ok || value == "" || strings.Trim(value, "+-0123456789._eE") != "" {
+		return ""
+	}
+	return value
 }
 
 // tomlTableHint is the hint of an unknown key at path of a TOML document

@@ -420,8 +420,8 @@ func TestDateRuleForeignEvery(t *testing.T) {
 }
 
 // A clock time where a time of day belongs, written without quotes with a
-// dot (start: 17.30), is the number 17.3 to YAML and TOML: it is told the
-// time to write, as the same text in quotes is. A duration whose minutes
+// dot (start: 17.30), is the number 17.3 to YAML and TOML: it is named as
+// written and told the time to write, as the same text in quotes is. A duration whose minutes
 // have no unit, or written with spaces, is told the duration to write.
 func TestClockAsNumberAndDurationSlips(t *testing.T) {
 	for format, doc := range map[string]string{
@@ -431,13 +431,13 @@ func TestClockAsNumberAndDurationSlips(t *testing.T) {
 		_, err := Parse(strings.NewReader(doc), format)
 		var got []string
 		for _, p := range problemsOf(t, err) {
-			got = append(got, p.Path+": "+p.Hint)
+			got = append(got, p.Path+": "+p.Value+": "+p.Hint)
 		}
 		want := []string{
-			`feeds[0].plans[0].start: write it "17:30"`,
-			`feeds[0].plans[0].for: the minutes need their unit too: write "1h30m"`,
-			`feeds[0].plans[1].start: write it "17:30"`,
-			`feeds[0].plans[1].for: write it without spaces: "1h30m"`,
+			`feeds[0].plans[0].start: 17.30: write it "17:30"`, // as written, not the number 17.3
+			`feeds[0].plans[0].for: 1h30: the minutes need their unit too: write "1h30m"`,
+			`feeds[0].plans[1].start: 17.30: write it "17:30"`,
+			`feeds[0].plans[1].for: 1h 30m: write it without spaces: "1h30m"`,
 		}
 		if !slices.Equal(got, want) {
 			t.Errorf("%s: hints\n%s\nwant\n%s", format, strings.Join(got, "\n"), strings.Join(want, "\n"))

@@ -225,7 +225,7 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		problems = append(problems, commentValues(data, places)...)
 	}
 	for i := range c.Sites {
-		problems = append(problems, c.Sites[i].resolveHorizon(fmt.Sprintf("sites[%d].horizon", i), dir)...)
+		problems = append(problems, c.Sites[i].resolveHorizon(fmt.Sprintf("sites[%d].horizon", i), dir, format)...)
 	}
 	fromEnv, envProblems := applyEnv(c, env)
 	problems = append(problems, envProblems...)

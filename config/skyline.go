@@ -18,8 +18,10 @@ import (
 // file of such points (one "azimuth,altitude" per line; a header line and
 // lines starting with # are skipped; a relative name is read from dir, the
 // configuration file's directory, or the working directory when dir is
-// empty). It sets Horizon or Skyline and returns the problems.
-func (s *Site) resolveHorizon(path, dir string) []FieldError {
+// empty). It sets Horizon or Skyline and returns the problems, whose hints
+// write a key as format writes it ("yaml", "toml" or "json"; a flag's path
+// begins with "--").
+func (s *Site) resolveHorizon(path, dir, format string) []FieldError {
 	switch v := s.HorizonValue.(type) {
 	case nil:
 		return nil
@@ -44,7 +46,10 @@ func (s *Site) resolveHorizon(path, dir string) []FieldError {
 				hint = "a relative name is read from the configuration file's directory; " + hint
 			}
 			if n := altitudeText(v); n != "" { // "2°", or "2" in quotes
-				written := "horizon: " + n
+				written := map[string]string{"toml": "horizon = " + n, "json": `"horizon": ` + n}[format]
+				if written == "" {
+					written = "horizon: " + n
+				}
 				if strings.HasPrefix(path, "--") {
 					written = path + " " + n // a flag: "--horizon 2"
 				}
@@ -316,7 +321,7 @@ func (s *Site) HorizonFromText(flag, v string) error {
 		s.Skyline = pts
 		return nil
 	}
-	if ps := s.resolveHorizon(flag, ""); len(ps) > 0 {
+	if ps := s.resolveHorizon(flag, "", ""); len(ps) > 0 {
 		return oneProblem(ps)
 	}
 	return nil

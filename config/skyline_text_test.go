@@ -66,3 +66,23 @@ func TestHorizonFromTextDegreeSign(t *testing.T) {
 		t.Errorf("%v, want %q", err, want)
 	}
 }
+
+// A site's horizon written with its degree sign is told the number to
+// write, the key written as the file's format writes it.
+func TestHorizonDegreeSignEachFormat(t *testing.T) {
+	for format, doc := range map[string]string{
+		"yaml": "sites: [{id: a, latitude: 1, longitude: 2, timezone: UTC, horizon: 2°}]\n",
+		"toml": "[[sites]]\nid = \"a\"\nlatitude = 1\nlongitude = 2\ntimezone = \"UTC\"\nhorizon = \"2°\"\n",
+		"json": `{"sites": [{"id": "a", "latitude": 1, "longitude": 2, "timezone": "UTC", "horizon": "2°"}]}`,
+	} {
+		_, err := Parse(strings.NewReader(doc), format)
+		want := map[string]string{"yaml": "horizon: 2", "toml": "horizon = 2", "json": `"horizon": 2`}[format]
+		found := false
+		for _, p := range problemsOf(t, err) {
+			found = found || p.Path == "sites[0].horizon" && p.Hint == "for one altitude, write the number alone: "+want
+		}
+		if !found {
+			t.Errorf("%s: %v\nwant the hint to write %s", format, err, want)
+		}
+	}
+}

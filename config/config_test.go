@@ -201,7 +201,7 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-horizon.yaml", "sites[0].horizon", "60", "must be within -5..45 degrees", "the altitude of the visible skyline in degrees: 0 for a flat horizon, 2 behind low hills", 0},
 		{"band-wrong-kind.yaml", "feeds[0].kinds[0].low", "10", "applies only to golden-hour and blue-hour", "sun-band:10..30", 0},
 		{"bad-band-empty.yaml", "feeds[0].kinds[0].low", "7", "the band 7..6 is empty", "-4..6", 0},
-		{"bad-sun-band.yaml", "feeds[0].kinds[0]", "sun-band:30..10", "low altitude must be below the high one", "low first", 0},
+		{"bad-sun-band.yaml", "feeds[0].kinds[0]", "sun-band:30..10", "low altitude must be below the high one", `did you mean "sun-band:10..30"?`, 0},
 		{"bad-skyline-point.yaml", "sites[0].horizon[1]", "[8, 90]", "altitude must be within -5..45 degrees", "azimuth comes first", 0},
 		{"bad-skyline-shape.yaml", "sites[0].horizon[1]", "[90]", "must be a pair [azimuth, altitude]", "horizon: [[0, 2.5]", 0},
 		{"bad-skyline-file.yaml", "sites[0].horizon", "no-such-skyline.csv", "no such skyline file", "azimuth,altitude", 0},

@@ -259,7 +259,11 @@ func ParseKind(s string) (Kind, error) {
 			return Kind{}, &KindError{Value: s, Msg: "altitudes must be above -90 and below 90", Hint: hint}
 		}
 		if !(lo < hi) {
-			return Kind{}, &KindError{Value: s, Msg: "the low altitude must be below the high one", Hint: hint}
+			h := hint
+			if lo > hi { // sun-band:35..20: the two the other way round
+				h = didYouMean(fmt.Sprintf("%s:%s..%s", KindSunBand, strings.TrimSpace(b), strings.TrimSpace(a)))
+			}
+			return Kind{}, &KindError{Value: s, Msg: "the low altitude must be below the high one", Hint: h}
 		}
 		return Kind{Name: KindSunBand, Altitude: lo, High: hi}, nil
 	default: // KindPhotoperiod, KindLighting

@@ -104,6 +104,8 @@ func TestParseKindErrors(t *testing.T) {
 		{"sun-altitude:inf", "malformed altitude", ""},
 		{"sun-altitude:six", "malformed altitude", ""},
 		{"sun-altitude:30°", "malformed altitude", `did you mean "sun-altitude:30"?`},
+		{"sun-band:35..20", "the low altitude must be below the high one", `did you mean "sun-band:20..35"?`},
+		{"sun-band:5..5", "the low altitude must be below the high one", `write two altitudes in degrees, low first`},
 		{"sun-altitude:-6 deg", "malformed altitude", `did you mean "sun-altitude:-6"?`},
 		{"photoperiod", "needs a day length", ""},
 		{"photoperiod:12", "malformed day length", ""},

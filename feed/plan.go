@@ -705,9 +705,10 @@ func (sky *Sky) planDates(ctx context.Context, p Place, r config.DateRule, first
 			d = weekdayOf(d, r.Weekday, r.Relation)
 			// a date the clocks skip whole (Friday 30 December 2011 in
 			// Pacific/Apia) is no such weekday: the rule takes the
-			// nearest one that exists, a week before or after (only one
-			// within a week of the window can reach it)
-			if !d.Before(first.AddDate(0, 0, -7)) && !d.After(last.AddDate(0, 0, 7)) && c.gone(d) {
+			// nearest one that exists, a week before or after (c's
+			// dates, a week beyond the window, hold every one that can
+			// reach it)
+			if c.gone(d) {
 				skipped, d = d, otherWeekday(d, e.day, r.Relation)
 			}
 		}

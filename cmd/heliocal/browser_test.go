@@ -498,6 +498,11 @@ func TestBrowserContrast(t *testing.T) {
 				chromedp.Evaluate[chromedp.Void](`(() => { const m = document.getElementById("message"); m.textContent = "Latitude: enter decimal degrees."; m.hidden = false; })()`),
 			}},
 			{"table", table, []chromedp.Action[chromedp.Void]{chromedp.WaitVisible(chromedp.CSS("table.days"))}},
+			// The note on the values of the builder's link it left out.
+			{"builder from a link", ts.URL + "/?lat=-33.45&lon=-70.67&tz=America/Santigo&kinds=sunrise,sunrize", []chromedp.Action[chromedp.Void]{
+				chromedp.WaitVisible(chromedp.ID("fill-note")),
+				chromedp.Poll[chromedp.Void](`document.querySelector("#preview li") !== null`),
+			}},
 		} {
 			actions := append([]chromedp.Action[chromedp.Void]{chromedp.EmulateViewport(1280, 900), chromedp.Navigate(page.url)}, page.ready...)
 			if err := chromedp.Do(ctx, actions...); err != nil {
@@ -1021,9 +1026,10 @@ func TestBrowserTablePrintsRowsWhole(t *testing.T) {
 // (https://sky.example.org/calendars/, the base_url of the README's
 // example, the proxy passing /calendars/… on without the prefix), the page
 // finds its style, script and icon and asks for its preview under that
-// path too, and the table page and its "make another" link stay there:
-// they were asked for at the site's root (/assets/builder.css,
-// /at.json?…), where the proxy has none of them.
+// path too, and the table page and its "make another" link (to the builder
+// filled with the table's place) stay there: they were asked for at the
+// site's root (/assets/builder.css, /at.json?…), where the proxy has none
+// of them.
 func TestBrowserUnderPathPrefix(t *testing.T) {
 	mux := http.NewServeMux()
 	mux.Handle("/calendars/", http.StripPrefix("/calendars", builderHandler(t, filepath.Join("..", "..", "config", "demo.yaml"))))
@@ -1058,8 +1064,9 @@ func TestBrowserUnderPathPrefix(t *testing.T) {
 		t.Errorf("the table page under /calendars/: not styled (%v); asked at the root for %q", err, root())
 	}
 	another, err := chromedp.Run(ctx, chromedp.Evaluate[string](`[...document.querySelectorAll("a")].find(a => a.textContent === "make another").href`))
-	if err != nil || another != ts.URL+"/calendars/" {
-		t.Errorf("the table page's \"make another\" leads to %q (%v), want %s", another, err, ts.URL+"/calendars/")
+	rest, under := strings.CutPrefix(another, ts.URL+"/calendars/?")
+	if v, _ := url.ParseQuery(rest); err != nil || !under || v.Get("lat") != "23.11" || v.Get("lon") != "-82.41" {
+		t.Errorf("the table page's \"make another\" leads to %q (%v), want %s and the table's place", another, err, ts.URL+"/calendars/?")
 	}
 	if r := root(); len(r) > 0 {
 		t.Errorf("the pages under /calendars/ asked at the site's root for %q", r)

@@ -239,6 +239,11 @@ func (q *AdhocQuery) parsePlace(get getter) error {
 	if q.Longitude == -180 {
 		q.Longitude = 180 // the same meridian, one spelling
 	}
+	return q.parseElevation(get)
+}
+
+// parseElevation reads elev.
+func (q *AdhocQuery) parseElevation(get getter) error {
 	if v, ok := get(ParamElevation); ok {
 		e, err := parseFloat(ParamElevation, v)
 		if err != nil {

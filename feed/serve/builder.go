@@ -824,7 +824,10 @@ type tableView struct {
 	Days          []previewDay
 	From, To      string
 	Builder       bool
-	Legal         bool
+	// Another is the builder's address filled with this table's query
+	// ("make another": AdhocQuery.builderQuery), relative to the page.
+	Another string
+	Legal   bool
 }
 
 func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
@@ -852,7 +855,7 @@ func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
 		Coords: place + q.horizonWords(),
 		HTTPS:  https, Webcal: template.URL(webcal(https)), Link: template.URL(page), QR: template.URL(qrDataURL(page)), SubscribeNote: subscribeNote(subDays),
 		Days: days(cal, q), From: q.Start.Format(time.DateOnly), To: q.Start.AddDate(0, 0, q.Days-1).Format(time.DateOnly),
-		Builder: !s.page().NoBuilder, Legal: slices.ContainsFunc(q.Kinds, LegalKind)}
+		Builder: !s.page().NoBuilder, Another: "./?" + q.builderQuery(start), Legal: slices.ContainsFunc(q.Kinds, LegalKind)}
 	s.render(w, r, "table.html", v)
 }
 
@@ -861,13 +864,21 @@ type errorView struct {
 	Page    PageInfo
 	Message string
 	Builder bool
+	// Again is the builder's address with the refused table's query: the
+	// builder keeps what it can use and says what it leaves out
+	// (builderFill).
+	Again string
 }
 
 // tableFailed answers a table that cannot be shown with a page that says
 // why, in the page's language and style, and leads back to the builder.
 func (s *Server) tableFailed(r *http.Request) failFunc {
 	return func(w http.ResponseWriter, code int, msg string) {
-		s.renderStatus(w, r, code, "error.html", errorView{Page: s.page(), Message: strings.TrimPrefix(msg, "serve: "), Builder: !s.page().NoBuilder})
+		again := "./"
+		if r.URL.RawQuery != "" {
+			again += "?" + r.URL.RawQuery
+		}
+		s.renderStatus(w, r, code, "error.html", errorView{Page: s.page(), Message: strings.TrimPrefix(msg, "serve: "), Builder: !s.page().NoBuilder, Again: again})
 	}
 }
 
@@ -887,12 +898,15 @@ type homeView struct {
 	Sites   []PageSite
 	Feeds   []homeFeed // when the page has no sites: feeds.json's
 	Index   string     // the published index.html (the sites' year charts), absolute
-	Today   string
+	// Fill is what the form opens with: the page's query (builderFill),
+	// or its defaults, the server's today the date of the preview.
+	Fill builderFill
 }
 
 func (s *Server) serveHome(w http.ResponseWriter, r *http.Request) {
 	p := s.page()
-	v := homeView{Page: p, Builder: !p.NoBuilder, Legal: p.Legal || !p.NoBuilder, Groups: kindGroups, Today: s.now().Format(time.DateOnly)}
+	v := homeView{Page: p, Builder: !p.NoBuilder, Legal: p.Legal || !p.NoBuilder}
+	v.Fill, v.Groups = s.builderFill(r.URL.RawQuery, s.now().Format(time.DateOnly))
 	snap := s.snap.Load()
 	base := s.baseFor(r)
 	if snap != nil && snap.files[publish.IndexName] != nil {

@@ -31,7 +31,7 @@ func previewCalendar(_ context.Context, q AdhocQuery) (*feed.Calendar, error) {
 	return cal, nil
 }
 
-func builderTestServer(t *testing.T) *Server {
+func builderTestServer(t testing.TB) *Server {
 	s, _ := newTestServer(t, Options{Adhoc: adhocICS, Preview: previewCalendar})
 	s.now = func() time.Time { return today }
 	return s
@@ -266,8 +266,9 @@ func TestPageDefaultTitle(t *testing.T) {
 
 // A table link that cannot be shown (a latitude of 95°, outside −90..90; a
 // table of 63 days, over its 62) answers a page in the page's language and
-// style that says why and leads back to the builder, with the status of the
-// refusal; the builder's own preview /at.json keeps its one line of text.
+// style that says why and leads back to the builder with its query, with
+// the status of the refusal; the builder's own preview /at.json keeps its
+// one line of text.
 func TestTableErrorPage(t *testing.T) {
 	s := builderTestServer(t)
 	h := s.Handler()
@@ -280,7 +281,7 @@ func TestTableErrorPage(t *testing.T) {
 		if r.StatusCode != 400 || !strings.HasPrefix(r.Header.Get("Content-Type"), "text/html") || r.Header.Get("Content-Security-Policy") == "" {
 			t.Errorf("/at?%s: %d %q (CSP %q), want 400 text/html under the page's policy", tc.query, r.StatusCode, r.Header.Get("Content-Type"), r.Header.Get("Content-Security-Policy"))
 		}
-		for _, want := range []string{`<html lang="en">`, "<title>This table cannot be shown", `<p class="message">` + tc.says, `<a href="./">`, `href="assets/builder.css"`} {
+		for _, want := range []string{`<html lang="en">`, "<title>This table cannot be shown", `<p class="message">` + tc.says, `<a href="./?` + strings.ReplaceAll(tc.query, "&", "&amp;") + `">`, `href="assets/builder.css"`} {
 			if !strings.Contains(b, want) {
 				t.Errorf("/at?%s: the page lacks %q:\n%s", tc.query, want, b)
 			}

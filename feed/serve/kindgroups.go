@@ -8,6 +8,9 @@ type kindChoice struct {
 	Kind, Label, Explain string
 	Checked              bool // chosen when the page opens
 	Shift                bool // the builder offers an offset (minutes before or after)
+	// Offset is the minutes the offset's input opens with ("": 0), as a
+	// query of the page gives them (builderFill).
+	Offset string
 }
 
 // kindGroup gathers the kinds by what people do with them.

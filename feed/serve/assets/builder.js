@@ -1,5 +1,7 @@
 // The builder page: reads the form, asks the server for a preview of seven
 // days from the date chosen (/at.json) and shows the subscribe links it returns.
+// The form may open filled by the server from the page's query (the table's
+// "make another" link): the preview is asked for as soon as the page loads.
 "use strict";
 
 // parseAngle reads decimal degrees ("-33.45") or degrees, minutes and
@@ -56,9 +58,10 @@ function query(withStart) {
   if (offsets.length) p.set("offsets", offsets.join(","));
   // until a date is chosen, the preview is from today at the place, which
   // the server takes when no start is given: the date the page came with
-  // is the server's, a day off where the place's date is not (render)
+  // is the server's, a day off where the place's date is not (render); a
+  // date the page's link gave (data-chosen) is chosen
   const start = $("start");
-  if (withStart && start.value && start.value !== start.defaultValue) p.set("start", start.value);
+  if (withStart && start.value && (start.value !== start.defaultValue || "chosen" in start.dataset)) p.set("start", start.value);
   return { params: p };
 }
 

@@ -2,6 +2,7 @@ package serve
 
 import (
 	"html"
+	"net/http/httptest"
 	"net/url"
 	"regexp"
 	"slices"
@@ -191,4 +192,37 @@ func TestRefusedTableLinksBuilderWithQuery(t *testing.T) {
 	if want := `<a href="./?` + html.EscapeString(q) + `">`; r.StatusCode != 400 || !strings.Contains(page, want) {
 		t.Errorf("/at?%s: %d, want 400 and a link %s:\n%s", q, r.StatusCode, want, page)
 	}
+}
+
+// Whatever the query, the builder's page opens (200, with its form), and
+// every note it gives on what it left out names a parameter (or says that
+// the value had none, or why none of the query is used).
+func FuzzBuilderFill(f *testing.F) {
+	for _, seed := range []string{
+		"lat=-33.45&lon=-70.6667&elev=520&name=Quebrada+vineyard&horizon=60:12,0:2&kinds=sunset,lighting:14h30m&offsets=sunset:-30m&alarm=1h30m&start=2026-06-21",
+		"lat=1e400&lon=NaN&tz=../x&kinds=,&offsets=:,sunrise:&lighting=0&days=-1&utc=maybe",
+		"%zz&;;==&lat=1&lat=2&kinds=lighting:16h,lighting:12h",
+		"lat=0x1p-2&lon=1_000&tz=Local&kinds=\x00&name=%00&horizon=0:2,0:3",
+		"start=0000-01-01&lat=0&lon=0&tz=UTC&kinds=sun-altitude:-6&offsets=sun-altitude:-6:10m",
+	} {
+		f.Add(seed)
+	}
+	h := builderTestServer(f).Handler()
+	f.Fuzz(func(t *testing.T, raw string) {
+		req := httptest.NewRequest("GET", "/", nil)
+		req.URL.RawQuery = raw
+		w := httptest.NewRecorder()
+		h.ServeHTTP(w, req)
+		r := w.Result()
+		page := body(t, r)
+		if r.StatusCode != 200 || !strings.Contains(page, `<form id="builder"`) {
+			t.Fatalf("query %q: status %d, the form shown: %v", raw, r.StatusCode, strings.Contains(page, `<form id="builder"`))
+		}
+		for _, n := range fillNotes(page) {
+			if !strings.HasPrefix(n, "parameter ") && !strings.HasPrefix(n, "the link's query") && !strings.HasPrefix(n, "a part of the link's query") &&
+				!strings.HasPrefix(n, "a value without a parameter's name") && !strings.HasSuffix(n, " more values left out") {
+				t.Fatalf("query %q: the note %q names no parameter", raw, n)
+			}
+		}
+	})
 }

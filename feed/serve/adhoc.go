@@ -113,6 +113,23 @@ func (q AdhocQuery) place() string {
 	return b.String()
 }
 
+// zoneInLink escapes what a zone name may hold that a query string reads
+// otherwise: the "+" of Etc/GMT+1 … Etc/GMT+12 (the zones at sea west of 7.5° W)
+// is a space there. The slashes stay as they are.
+var zoneInLink = strings.NewReplacer("%", "%25", "+", "%2B", "&", "%26", "#", "%23", " ", "%20")
+
+// linkPlace is place as a link writes it: the zone's name escaped. place
+// itself, the cache key and the source of ID (and so of the entries'
+// UIDs), keeps the name as it is.
+func (q AdhocQuery) linkPlace() string {
+	p := q.place()
+	tz := q.Location.String()
+	if esc := zoneInLink.Replace(tz); esc != tz {
+		p = strings.Replace(p, "&"+ParamZone+"="+tz+"&", "&"+ParamZone+"="+esc+"&", 1)
+	}
+	return p
+}
+
 // ID is a short identifier of the place, zone and kinds (not of the window):
 // "at-" and 12 hex digits. Use it as the feed id so event UIDs stay the same
 // when the same query is asked again another day.
@@ -274,6 +291,12 @@ func (q *AdhocQuery) parseZone(get getter, lim *adhocLimits) error {
 	}
 	var err error
 	if q.Location, err = lim.zones.load(tz); err != nil {
+		if plus := strings.ReplaceAll(tz, " ", "+"); plus != tz {
+			if _, err := lim.zones.load(plus); err == nil {
+				// a link that wrote Etc/GMT+12 as it is: its "+" is a space
+				return &QueryError{Param: ParamZone, Value: tz, Msg: fmt.Sprintf("unknown time zone (a \"+\" in a link is read as a space: for %s write tz=%s)", plus, zoneInLink.Replace(plus))}
+			}
+		}
 		// the configuration's suggestion: the nearest known name
 		return &QueryError{Param: ParamZone, Value: tz, Msg: "unknown time zone (" + config.ZoneHint(tz) + ")"}
 	}

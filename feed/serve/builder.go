@@ -454,11 +454,12 @@ func (y *yearLamps) until(kind string, date, last time.Time) (until time.Time, o
 // the page shared is the page shown).
 func (s *Server) links(r *http.Request, q AdhocQuery, start string, days, pageDays int) (https, page string) {
 	base := s.baseFor(r)
-	https = base + strings.TrimPrefix(AdhocPath, "/") + "?" + q.place()
+	place := q.linkPlace()
+	https = base + strings.TrimPrefix(AdhocPath, "/") + "?" + place
 	if days > 0 && days < s.opts.AdhocDefaultDays {
 		https += "&" + ParamDays + "=" + strconv.Itoa(days)
 	}
-	page = base + strings.TrimPrefix(TablePath, "/") + "?" + q.place()
+	page = base + strings.TrimPrefix(TablePath, "/") + "?" + place
 	if start != "" {
 		page += "&" + ParamStart + "=" + start
 	}

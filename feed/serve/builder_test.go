@@ -531,3 +531,46 @@ func TestPreviewInstantsInUTC(t *testing.T) {
 		}
 	}
 }
+
+// TestLinksEscapeZone: the zone found at sea west of 172.5° W is
+// Etc/GMT+12 (the tz database's zones at sea are named with the sign
+// reversed: UTC−12). A "+" in a query string is a space, so the subscribe
+// and table links write it %2B; fetched, they are the feed and the table
+// of that zone, and the feed's id is the one the unescaped query gives.
+func TestLinksEscapeZone(t *testing.T) {
+	s := builderTestServer(t)
+	r := get(t, s.Handler(), "GET", "/at.json?lat=0&lon=-177.5&kinds=sunrise")
+	b := body(t, r)
+	if r.StatusCode != 200 {
+		t.Fatalf("status %d: %s", r.StatusCode, b)
+	}
+	var res previewResult
+	if err := json.Unmarshal([]byte(b), &res); err != nil {
+		t.Fatal(err)
+	}
+	if res.Zone != "Etc/GMT+12" {
+		t.Fatalf("zone %q, want Etc/GMT+12 at sea at 177.5° W", res.Zone)
+	}
+	for _, link := range []string{res.HTTPS, res.Page} {
+		if !strings.Contains(link, "&tz=Etc/GMT%2B12&") {
+			t.Errorf("link %q: want the zone written tz=Etc/GMT%%2B12", link)
+		}
+		r := get(t, s.Handler(), "GET", strings.TrimPrefix(link, "http://example.com"))
+		if m := body(t, r); r.StatusCode != 200 {
+			t.Errorf("GET %s: %d %.200q, want 200", link, r.StatusCode, m)
+		}
+	}
+	// a link written by hand with the "+" as it is: told how to write it
+	r = get(t, s.Handler(), "GET", "/at.ics?lat=0&lon=-177.5&kinds=sunrise&tz=Etc/GMT+12")
+	if m, want := body(t, r), `parameter tz="Etc/GMT 12": unknown time zone (a "+" in a link is read as a space: for Etc/GMT+12 write tz=Etc/GMT%2B12)`; r.StatusCode != 400 || !strings.Contains(m, want) {
+		t.Errorf("tz=Etc/GMT+12: %d %q, want 400 saying %q", r.StatusCode, m, want)
+	}
+	lim := &adhocLimits{parseKind: parseKind, maxDays: 400, defaultDays: 365, minYear: 1900, maxYear: 2100, zones: &zoneCache{}}
+	q, err := parseAdhoc("lat=0&lon=-177.5&kinds=sunrise&tz=Etc/GMT%2B12", today, lim)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := q.linkPlace(); strings.Replace(got, "%2B", "+", 1) != q.place() {
+		t.Errorf("linkPlace %q differs from place %q by more than the zone's +", got, q.place())
+	}
+}

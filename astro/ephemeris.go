@@ -41,7 +41,8 @@ type Observer struct {
 	Elevation float64
 	// Horizon is the apparent altitude of the visible skyline in degrees
 	// (hills, buildings), as measured from the site; 0 means a sea or flat
-	// horizon and then Elevation's dip applies. See RiseSetAltitude.
+	// horizon and then Elevation's dip applies; LevelHorizon is a level one
+	// without the dip. See RiseSetAltitude.
 	Horizon float64
 	// Pressure (hPa) and Temperature (°C) of the air at the site scale the
 	// refraction of rise and set (see RefractionFactor). Pressure 0 means
@@ -114,7 +115,7 @@ func (o Observer) Validate() error {
 // sunrise and sunset for this observer, in degrees:
 //
 //   - Horizon == 0: SunriseAltitude (−0.8333°) lowered by the dip of the
-//     horizon 1.76′·√Elevation (Elevation in metres, ignored when ≤ 0);
+//     horizon 1.76′·√Elevation (Dip; Elevation in metres, ignored when ≤ 0);
 //   - Horizon != 0: the upper limb touches the skyline at apparent altitude
 //     Horizon, so the centre's geometric altitude is Horizon − R − 16′, R
 //     being the standard refraction at apparent altitude Horizon (Bennett's
@@ -133,10 +134,28 @@ func (o Observer) RiseSetAltitude() float64 {
 		if o.Elevation <= 0 {
 			return h
 		}
-		return h - 1.76/60*math.Sqrt(o.Elevation)
+		return h - 1.76/60*math.Sqrt(o.Elevation) // Dip
 	}
 	r, _ := bennett(max(o.Horizon, bennettMinAltitude)) // arcminutes
 	return o.Horizon - r*f/60 - 16.0/60
+}
+
+// LevelHorizon is the Horizon of a level horizon at 0° that the site gives
+// as its own (a plateau whose horizon is land at its own height), where 0
+// is the flat horizon lowered by the dip: the smallest Horizon above 0, it
+// is taken as any other Horizon, with the refraction at 0° (34.5′) and no
+// dip, and gives the same altitudes as 0° to the last bit.
+const LevelHorizon = math.SmallestNonzeroFloat64
+
+// Dip returns the dip of the horizon in degrees for an eye elevation
+// metres above a flat (sea) horizon: 1.76′·√elevation (common practice;
+// refraction over the sea included), 0 at or below sea level. From 1150 m
+// it is 59.7′.
+func Dip(elevation float64) float64 {
+	if elevation <= 0 {
+		return 0
+	}
+	return 1.76 / 60 * math.Sqrt(elevation)
 }
 
 // Ephemeris holds the Sun's apparent geocentric track (right ascension,

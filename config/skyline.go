@@ -26,13 +26,13 @@ func (s *Site) resolveHorizon(path, dir, format string) []FieldError {
 	case nil:
 		return nil
 	case float64:
-		s.Horizon = v
+		s.Horizon, s.HorizonSet = v, true
 		return nil
 	case int:
-		s.Horizon = float64(v)
+		s.Horizon, s.HorizonSet = float64(v), true
 		return nil
 	case int64:
-		s.Horizon = float64(v)
+		s.Horizon, s.HorizonSet = float64(v), true
 		return nil
 	case string:
 		name := v
@@ -306,7 +306,7 @@ func (s *Site) HorizonFromText(flag, v string) error {
 			return FieldError{Path: flag, Value: v, Msg: fmt.Sprintf("must be within %g..%g degrees", MinHorizon, MaxHorizon),
 				Hint: HorizonText}
 		}
-		s.Horizon, s.HorizonValue = x, x
+		s.Horizon, s.HorizonValue, s.HorizonSet = x, x, true
 		return nil
 	}
 	s.HorizonValue = t

@@ -66,6 +66,11 @@ type Site struct {
 	Elevation float64 `mapstructure:"elevation"` // metres above sea level
 	TimeZone  Zone    `mapstructure:"timezone"`  // IANA name; when absent, the zone at the coordinates (ZoneAt)
 	Horizon   float64 `mapstructure:"-"`         // altitude of the visible horizon in degrees (hills), default 0
+	// HorizonSet is true when the horizon is one altitude as written (the
+	// horizon key, --horizon, an ad-hoc horizon=), 0 included: a written 0
+	// is a level horizon at 0° (refraction at that altitude, no dip), an
+	// unset one the flat horizon lowered by the dip of Elevation.
+	HorizonSet bool `mapstructure:"-"`
 	// Skyline is the horizon per direction, [azimuth, altitude] points in
 	// degrees (azimuth from the north through the east), sorted by azimuth;
 	// nil when the horizon is one altitude. From the file's horizon key: a
@@ -84,6 +89,14 @@ type Site struct {
 	// ZoneInferred is true when the file gave no timezone and TimeZone was
 	// taken from the coordinates: the commands say so.
 	ZoneInferred bool `mapstructure:"-"`
+}
+
+// OwnHorizon reports whether rise and set at s are taken over its one
+// horizon altitude, Horizon (written, 0 included, or not 0): refraction at
+// that altitude and no dip. Otherwise they are over a skyline or over the
+// flat horizon lowered by the dip of Elevation.
+func (s *Site) OwnHorizon() bool {
+	return len(s.Skyline) == 0 && (s.Horizon != 0 || s.HorizonSet)
 }
 
 // Feed is one subscribable calendar.

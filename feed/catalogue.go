@@ -159,7 +159,8 @@ func (sky *Sky) Calendar(ctx context.Context, s *config.Site, f *config.Feed, fi
 // SiteOf converts a configured site for the renderers.
 func SiteOf(s *config.Site) Site {
 	site := Site{ID: s.ID, Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude,
-		Elevation: s.Elevation, Location: s.TimeZone.Location, Horizon: s.Horizon, Skyline: SkylineFactsOf(s.Skyline, s.HorizonFile)}
+		Elevation: s.Elevation, Location: s.TimeZone.Location, Horizon: s.Horizon, HorizonSet: s.OwnHorizon(),
+		Skyline: SkylineFactsOf(s.Skyline, s.HorizonFile)}
 	site.Pressure, site.Temperature = airOf(s)
 	return site
 }
@@ -185,6 +186,9 @@ func airOf(s *config.Site) (pressure, temperature float64) {
 // PlaceOf is the observer and zone of a configured site.
 func PlaceOf(s *config.Site) Place {
 	o := astro.Observer{Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation, Horizon: s.Horizon}
+	if s.Horizon == 0 && s.OwnHorizon() {
+		o.Horizon = astro.LevelHorizon // horizon: 0 written, without the dip
+	}
 	o.Pressure, o.Temperature = airOf(s)
 	pl := Place{Observer: o, Location: s.TimeZone.Location}
 	if len(s.Skyline) > 0 {

@@ -618,7 +618,7 @@ func TestRiseSetMeaningFollowsSite(t *testing.T) {
 	}
 	raised := func(h float64) *config.Site {
 		s := flat()
-		s.Horizon = h
+		s.Horizon, s.HorizonSet = h, true
 		return s
 	}
 	ridge := func() *config.Site {
@@ -658,6 +658,14 @@ func TestRiseSetMeaningFollowsSite(t *testing.T) {
 			"Moonrise: the Moon's upper limb appears over the site's horizon, 0.8° below eye level (standard refraction for that altitude).",
 			"Moonset: the Moon's upper limb disappears behind the site's horizon, 0.8° below eye level (standard refraction for that altitude).",
 			"Dark sky: the Sun is more than 18° below the horizon and the Moon is below the site's horizon (0.8° below eye level). " +
+				"The Sun's 18° are counted from the flat horizon, not the site's horizon.",
+		}, std},
+		{"level horizon written 0", raised(0), []string{
+			"Sunrise: the Sun's upper limb appears over the site's level horizon (standard refraction for that altitude).",
+			"Sunset: the Sun's upper limb disappears behind the site's level horizon (standard refraction for that altitude).",
+			"Moonrise: the Moon's upper limb appears over the site's level horizon (standard refraction for that altitude).",
+			"Moonset: the Moon's upper limb disappears behind the site's level horizon (standard refraction for that altitude).",
+			"Dark sky: the Sun is more than 18° below the horizon and the Moon is below the site's horizon (level). " +
 				"The Sun's 18° are counted from the flat horizon, not the site's horizon.",
 		}, std},
 		{"skyline", ridge(), []string{

@@ -94,10 +94,12 @@ type Site struct {
 	Elevation float64 // metres above sea level
 	Location  *time.Location
 	// Horizon is the altitude of the visible horizon in degrees (hills), 0
-	// for a flat one; Skyline, when its Points are not zero, the horizon
-	// per direction instead.
-	Horizon float64
-	Skyline SkylineFacts
+	// for a flat one (lowered by the dip of Elevation) unless HorizonSet (a
+	// level one, written 0: config.Site.HorizonSet); Skyline, when its
+	// Points are not zero, the horizon per direction instead.
+	Horizon    float64
+	HorizonSet bool
+	Skyline    SkylineFacts
 	// Pressure (hPa) and Temperature (°C) are the air the refraction is
 	// computed for; a zero Pressure is the standard refraction.
 	Pressure, Temperature float64

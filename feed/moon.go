@@ -249,7 +249,7 @@ func moonMeaning(s *config.Site, kind string, maxLit float64) string {
 		switch {
 		case len(s.Skyline) > 0:
 			down = "behind the site's skyline"
-		case s.Horizon != 0:
+		case s.OwnHorizon():
 			// the Moon's rise and set over the site's horizon altitude
 			// (limbMeaning), the Sun's 18° under the flat horizon
 			down = "below the site's horizon (" + horizonHeight(s.Horizon) + ")"
@@ -262,7 +262,7 @@ func moonMeaning(s *config.Site, kind string, maxLit float64) string {
 		switch {
 		case len(s.Skyline) > 0:
 			m += " The Sun's 18° are counted from the flat horizon, not the skyline: the glow of twilight lights the sky over the hills as well."
-		case s.Horizon != 0:
+		case s.OwnHorizon():
 			m += " The Sun's 18° are counted from the flat horizon, not the site's horizon."
 		}
 		return m

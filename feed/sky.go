@@ -1721,10 +1721,13 @@ func (c *collector) upAtNoon(tr astro.Transit) bool {
 
 // flatRiseAltitude is the geometric altitude of the Sun's centre at which
 // it rises and sets for o over a flat horizon (o's elevation and air,
-// horizon altitude 0): a skyline or a raised horizon hides the Sun, it does
-// not set it.
+// horizon altitude 0, lowered by the dip unless o's horizon is written as
+// a level 0): a skyline or a raised horizon hides the Sun, it does not set
+// it.
 func flatRiseAltitude(o astro.Observer) float64 {
-	o.Horizon = 0
+	if o.Horizon != astro.LevelHorizon {
+		o.Horizon = 0
+	}
 	return o.RiseSetAltitude()
 }
 

@@ -489,7 +489,7 @@ func newSiteInfo(s *config.Site) *siteInfo {
 	o := PlaceOf(s).Observer
 	si := &siteInfo{Site: s, where: where(s), zone: newZoneCache(s.TimeZone.Location), flatRise: flatRiseAltitude(o)}
 	si.rise = si.flatRise
-	if s.Horizon != 0 && len(s.Skyline) == 0 {
+	if s.OwnHorizon() {
 		si.rise = o.RiseSetAltitude()
 	}
 	return si
@@ -516,7 +516,8 @@ func RefractionText(o astro.Observer) string {
 
 // Conditions names what the times of site s are computed for besides its
 // place, when that is not a flat horizon and the standard refraction: its
-// horizon ("horizon 1.5°", "horizon −0.8°", or a skyline in SkylineText's
+// horizon ("horizon 1.5°", "horizon −0.8°", "horizon 0°" for a level one
+// written, with no dip, or a skyline in SkylineText's
 // words) and its air ("refraction for 1030 hPa and −20 °C", RefractionText),
 // joined by a comma; "" for neither. The events table's heading, the index's
 // place lines and the served page's list of sites say it in these words.
@@ -525,7 +526,7 @@ func (s Site) Conditions() string {
 	switch {
 	case s.Skyline.Points > 0:
 		words = append(words, SkylineText(s.Skyline))
-	case s.Horizon != 0:
+	case s.Horizon != 0 || s.HorizonSet:
 		words = append(words, "horizon "+AltitudeText(s.Horizon))
 	}
 	if s.Pressure != 0 {
@@ -888,7 +889,8 @@ func kindMeaning(s *config.Site, kind string) string {
 // computed in: "Sunrise: the Sun's upper limb appears on the horizon
 // (standard refraction)." over a flat horizon (the dip of its elevation
 // included), "…appears over the site's horizon, 2° high (standard
-// refraction for that altitude)." for a horizon altitude (no dip), and
+// refraction for that altitude)." for a horizon altitude (no dip; "the
+// site's level horizon" for one written 0), and
 // "…first appears over the site's skyline (…)" for a skyline.
 func limbMeaning(s *config.Site, kind, body string, rising bool) string {
 	var air astro.Observer
@@ -909,18 +911,26 @@ func limbMeaning(s *config.Site, kind, body string, rising bool) string {
 		if rising {
 			verb = "first appears over the site's skyline"
 		}
-	case s.Horizon != 0:
-		verb, refr = "disappears behind the site's horizon, "+horizonHeight(s.Horizon), refr+at+"that altitude"
+	case s.OwnHorizon():
+		over := "the site's horizon, " + horizonHeight(s.Horizon)
+		if s.Horizon == 0 {
+			over = "the site's level horizon"
+		}
+		verb, refr = "disappears behind "+over, refr+at+"that altitude"
 		if rising {
-			verb = "appears over the site's horizon, " + horizonHeight(s.Horizon)
+			verb = "appears over " + over
 		}
 	}
 	return plainNames[kind] + ": the " + body + "'s upper limb " + verb + " (" + refr + ")."
 }
 
 // horizonHeight says how high a site's horizon altitude h is: "2° high",
-// "1.5° high", "0.8° below eye level" (a sea horizon seen from a height).
+// "1.5° high", "0.8° below eye level" (a sea horizon seen from a height),
+// "level" for 0.
 func horizonHeight(h float64) string {
+	if h == 0 {
+		return "level"
+	}
 	d := AltitudeText(math.Abs(h))
 	if h < 0 {
 		return d + " below eye level"

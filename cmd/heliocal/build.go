@@ -588,8 +588,10 @@ func adhocCalendarFrom(current func() adhocSettings) serve.PreviewFunc {
 			Longitude: q.Longitude,
 			Elevation: q.Elevation,
 			Horizon:   q.Horizon,
-			Skyline:   q.Skyline,
-			TimeZone:  config.Zone{Location: q.Location},
+			// horizon=0: a level horizon, without the dip
+			HorizonSet: q.HorizonSet,
+			Skyline:    q.Skyline,
+			TimeZone:   config.Zone{Location: q.Location},
 		}
 		place := feed.Coords(q.Latitude, q.Longitude, 4) // "45.0300° S, 168.6600° E", as events names a place
 		if q.Name != "" {

@@ -6,6 +6,7 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"math"
 	"slices"
 	"strings"
 	"text/tabwriter"
@@ -13,6 +14,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"heliocal/astro"
 	"heliocal/config"
 	"heliocal/feed"
 	"heliocal/feed/publish"
@@ -109,19 +111,43 @@ type checkSite struct {
 	ID string `json:"id"`
 	sitePlace
 	// SkylineFile is the CSV file the skyline was read from.
-	SkylineFile      string `json:"skyline_file,omitempty"`
-	TimeZone         string `json:"timezone"`
-	TimeZoneInferred bool   `json:"timezone_inferred"`
+	SkylineFile string `json:"skyline_file,omitempty"`
+	// HorizonSet is true when the horizon is one altitude as written, 0
+	// included (a level horizon): rise and set are taken over it, with no
+	// dip.
+	HorizonSet bool `json:"horizon_set"`
+	// Dip is the dip of the horizon in degrees that lowers the flat horizon
+	// rise and set are taken over (no horizon written, elevation above 0;
+	// with a skyline, its points at 0°), to a thousandth; 0 when none does.
+	Dip              float64 `json:"dip_deg"`
+	TimeZone         string  `json:"timezone"`
+	TimeZoneInferred bool    `json:"timezone_inferred"`
 }
 
-// horizonText is a site's horizon in the table: "0°", "1.5°", "−0.8°", or
-// "skyline 1–14° (8 points, hills.csv)", with the minus sign of every
-// altitude the texts write.
+// horizonText is a site's horizon in the table: "0°", "1.5°", "−0.8°",
+// "0° level, no dip" for a horizon written 0, "0°, dip 1.0°" for the flat
+// horizon of an elevated site, or "skyline 1–14° (8 points, hills.csv)",
+// with the minus sign of every altitude the texts write.
 func horizonText(s checkSite) string {
-	if len(s.Skyline) == 0 {
-		return feed.AltitudeText(s.Horizon)
+	switch {
+	case len(s.Skyline) > 0:
+		return feed.SkylineText(feed.SkylineFactsOf(s.Skyline, s.SkylineFile))
+	case s.HorizonSet && s.Horizon == 0:
+		return "0° level, no dip"
+	case s.Dip > 0:
+		return fmt.Sprintf("0°, dip %.1f°", s.Dip)
 	}
-	return feed.SkylineText(feed.SkylineFactsOf(s.Skyline, s.SkylineFile))
+	return feed.AltitudeText(s.Horizon)
+}
+
+// dipOf is the dip of the horizon (degrees, to a thousandth) that rise and
+// set at s are taken over: that of its elevation over the flat horizon or
+// a skyline's points at 0°, none over a horizon written as one altitude.
+func dipOf(s *config.Site) float64 {
+	if s.OwnHorizon() || len(s.Skyline) > 0 && !slices.ContainsFunc(s.Skyline, func(p [2]float64) bool { return p[1] == 0 }) {
+		return 0
+	}
+	return math.Round(astro.Dip(s.Elevation)*1000) / 1000
 }
 
 type checkFeed struct {
@@ -253,7 +279,7 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		Sites: []checkSite{}, Feeds: []checkFeed{}, Warnings: []string{}, Notes: []string{}}
 	for _, s := range cfg.Sites {
 		r.Sites = append(r.Sites, checkSite{ID: s.ID, sitePlace: placeOf(&s), SkylineFile: s.HorizonFile,
-			TimeZone: s.TimeZone.Name(), TimeZoneInferred: s.ZoneInferred})
+			HorizonSet: s.OwnHorizon(), Dip: dipOf(&s), TimeZone: s.TimeZone.Name(), TimeZoneInferred: s.ZoneInferred})
 	}
 	zoneLines := zoneNotes(cfg, now)
 	limit := cfg.Service.MaxFeedBytes

@@ -106,7 +106,7 @@ bytes as the published feed for the same window).` + exitStatusHelp,
 	f.Float64Var(&o.lat, "lat", 0, "latitude in degrees, north positive (−90..90)")
 	f.Float64Var(&o.lon, "lon", 0, "longitude in degrees, east positive (−180..180)")
 	f.Float64Var(&o.elev, "elev", 0, "elevation in metres above sea level")
-	f.StringVar(&o.horizon, "horizon", "", "altitude of the visible horizon in degrees (hills; default 0), or a skyline: points azimuth:altitude, e.g. 0:2,90:8,180:1, or a CSV file of them")
+	f.StringVar(&o.horizon, "horizon", "", "altitude of the visible horizon in degrees (hills; 0 is a level horizon, without the dip of --elev an unset one has), or a skyline: points azimuth:altitude, e.g. 0:2,90:8,180:1, or a CSV file of them")
 	f.Float64Var(&o.pressureV, "pressure", 0, "air pressure at the place in hPa, for refraction (default: standard refraction)")
 	f.Float64Var(&o.temperatureV, "temperature", 0, "air temperature at the place in °C, for refraction (default: standard refraction)")
 	f.StringVar(&o.tz, "tz", "", "IANA time zone of the place, e.g. Europe/Vienna (default: the zone in force at --lat/--lon)")

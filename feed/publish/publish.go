@@ -82,8 +82,8 @@ type manifestSite struct {
 	TimeZone  string  `json:"timezone"`
 	// The horizon and the air, written only when they are not a flat
 	// horizon and the standard refraction (feed.Site): the merged index's
-	// place lines name them.
-	Horizon     float64          `json:"horizon,omitempty"`
+	// place lines name them. A level horizon written 0 is "horizon": 0.
+	Horizon     *float64         `json:"horizon,omitempty"`
 	Skyline     *manifestSkyline `json:"skyline,omitempty"`
 	Pressure    float64          `json:"pressure_hpa,omitempty"`
 	Temperature *float64         `json:"temperature_c,omitempty"` // with Pressure
@@ -108,7 +108,10 @@ func (l *listing) manifest(sh Shard, digest string) (File, error) {
 			zone = s.Location.String()
 		}
 		ms := manifestSite{ID: s.ID, Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation,
-			TimeZone: zone, Horizon: s.Horizon, Pressure: s.Pressure}
+			TimeZone: zone, Pressure: s.Pressure}
+		if s.Horizon != 0 || s.HorizonSet {
+			ms.Horizon = &s.Horizon
+		}
 		if k := s.Skyline; k.Points > 0 {
 			ms.Skyline = &manifestSkyline{k.Low, k.High, k.Points, k.File}
 		}
@@ -419,7 +422,10 @@ func (w *Writer) mergeManifests(ctx context.Context, n int, digest string, opts 
 				return nil, fmt.Errorf("publish: shard manifest: site %s: %w", s.ID, err)
 			}
 			site := feed.Site{ID: s.ID, Name: s.Name, Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation,
-				Location: loc, Horizon: s.Horizon, Pressure: s.Pressure}
+				Location: loc, Pressure: s.Pressure}
+			if s.Horizon != nil {
+				site.Horizon, site.HorizonSet = *s.Horizon, true
+			}
 			if k := s.Skyline; k != nil {
 				if k.Points <= 0 {
 					return nil, fmt.Errorf("publish: shard manifest of shard %s: site %s: skyline.points: %d is not a number of points", m.Shard, s.ID, k.Points)

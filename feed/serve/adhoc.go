@@ -78,6 +78,10 @@ type AdhocQuery struct {
 	// [azimuth, altitude] points in degrees, sorted by azimuth, as a
 	// site's horizon list.
 	Skyline [][2]float64
+	// HorizonSet is true when horizon was given as one altitude, 0
+	// included: horizon=0 is a level horizon, without the dip of the
+	// elevation (config.Site.HorizonSet).
+	HorizonSet bool
 }
 
 // String returns the canonical query string, the cache key.
@@ -98,7 +102,7 @@ func (q AdhocQuery) place() string {
 	if q.Name != "" {
 		b.WriteString("&" + ParamName + "=" + url.QueryEscape(q.Name))
 	}
-	if q.Horizon != 0 {
+	if q.Horizon != 0 || q.HorizonSet {
 		b.WriteString("&" + ParamHorizon + "=" + strconv.FormatFloat(q.Horizon, 'f', -1, 64))
 	}
 	if len(q.Skyline) > 0 {

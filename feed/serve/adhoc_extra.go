@@ -54,7 +54,7 @@ func (q *AdhocQuery) parseExtras(get getter, lim *adhocLimits) error {
 				return &QueryError{Param: ParamHorizon, Value: v,
 					Msg: fmt.Sprintf("must be within %g..%g degrees (%s)", config.MinHorizon, config.MaxHorizon, config.HorizonText)}
 			}
-			q.Horizon = tenth(h)
+			q.Horizon, q.HorizonSet = tenth(h), true
 		}
 	}
 	if v, ok := get(ParamAlarm); ok {
@@ -181,7 +181,7 @@ func (q AdhocQuery) horizonWords() string {
 		return fmt.Sprintf(", skyline of %d points", len(q.Skyline))
 	case len(q.Skyline) > 0:
 		return ", skyline " + strings.ReplaceAll(q.skylineText(), ",", ", ") + " (azimuth:altitude)"
-	case q.Horizon != 0:
+	case q.Horizon != 0 || q.HorizonSet:
 		return ", horizon " + strconv.FormatFloat(q.Horizon, 'f', -1, 64) + "°"
 	}
 	return ""

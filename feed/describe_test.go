@@ -621,6 +621,16 @@ func TestRiseSetMeaningFollowsSite(t *testing.T) {
 		s.Horizon, s.HorizonSet = h, true
 		return s
 	}
+	sea := func() *config.Site {
+		s := flat()
+		s.Elevation = 0
+		return s
+	}
+	plateau := func() *config.Site { // Owlgate, 1150 m: the dip 1.76′·√1150 = 59.7′ (common practice)
+		s := site(t, "plateau", -31.27, 149.07, "Australia/Sydney")
+		s.Elevation = 1150
+		return s
+	}
 	ridge := func() *config.Site {
 		s := flat()
 		s.Skyline = [][2]float64{{0, 3}, {100, 12}, {150, 4}, {260, 15}, {300, 3}}
@@ -637,12 +647,31 @@ func TestRiseSetMeaningFollowsSite(t *testing.T) {
 		want    []string // the meanings of sunrise, sunset, moonrise, moonset, dark sky
 		caution string   // the refraction the caution names
 	}{
-		{"flat", flat(), []string{
+		{"sea level", sea(), []string{
 			"Sunrise: the Sun's upper limb appears on the horizon (standard refraction).",
 			"Sunset: the Sun's upper limb disappears below the horizon (standard refraction).",
 			"Moonrise: the Moon's upper limb appears on the horizon (standard refraction).",
 			"Moonset: the Moon's upper limb disappears below the horizon (standard refraction).",
 			"Dark sky: the Sun is more than 18° below the horizon and the Moon is below the horizon.",
+		}, std},
+		{"flat from 90 m", flat(), []string{ // the dip 1.76′·√90 = 16.7′
+			"Sunrise: the Sun's upper limb appears over a horizon 17′ below eye level, as seen from 90 m (standard refraction).",
+			"Sunset: the Sun's upper limb disappears behind a horizon 17′ below eye level, as seen from 90 m (standard refraction).",
+			"Moonrise: the Moon's upper limb appears over a horizon 17′ below eye level, as seen from 90 m (standard refraction).",
+			"Moonset: the Moon's upper limb disappears behind a horizon 17′ below eye level, as seen from 90 m (standard refraction).",
+			"Dark sky: the Sun is more than 18° below the horizon and the Moon is below the horizon.",
+		}, std},
+		{"flat from 1150 m", plateau(), []string{
+			"Sunrise: the Sun's upper limb appears over a horizon 1.0° below eye level, as seen from 1150 m (standard refraction).",
+			"Moonset: the Moon's upper limb disappears behind a horizon 1.0° below eye level, as seen from 1150 m (standard refraction).",
+		}, std},
+		{"level horizon written 0", raised(0), []string{
+			"Sunrise: the Sun's upper limb appears over the site's level horizon (standard refraction for that altitude).",
+			"Sunset: the Sun's upper limb disappears behind the site's level horizon (standard refraction for that altitude).",
+			"Moonrise: the Moon's upper limb appears over the site's level horizon (standard refraction for that altitude).",
+			"Moonset: the Moon's upper limb disappears behind the site's level horizon (standard refraction for that altitude).",
+			"Dark sky: the Sun is more than 18° below the horizon and the Moon is below the site's horizon (level). " +
+				"The Sun's 18° are counted from the flat horizon, not the site's horizon.",
 		}, std},
 		{"horizon 2°", raised(2), []string{
 			"Sunrise: the Sun's upper limb appears over the site's horizon, 2° high (standard refraction for that altitude).",
@@ -660,14 +689,6 @@ func TestRiseSetMeaningFollowsSite(t *testing.T) {
 			"Dark sky: the Sun is more than 18° below the horizon and the Moon is below the site's horizon (0.8° below eye level). " +
 				"The Sun's 18° are counted from the flat horizon, not the site's horizon.",
 		}, std},
-		{"level horizon written 0", raised(0), []string{
-			"Sunrise: the Sun's upper limb appears over the site's level horizon (standard refraction for that altitude).",
-			"Sunset: the Sun's upper limb disappears behind the site's level horizon (standard refraction for that altitude).",
-			"Moonrise: the Moon's upper limb appears over the site's level horizon (standard refraction for that altitude).",
-			"Moonset: the Moon's upper limb disappears behind the site's level horizon (standard refraction for that altitude).",
-			"Dark sky: the Sun is more than 18° below the horizon and the Moon is below the site's horizon (level). " +
-				"The Sun's 18° are counted from the flat horizon, not the site's horizon.",
-		}, std},
 		{"skyline", ridge(), []string{
 			"Sunrise: the Sun's upper limb first appears over the site's skyline (standard refraction for the skyline's altitude).",
 			"Sunset: the Sun's upper limb last disappears behind the site's skyline (standard refraction for the skyline's altitude).",
@@ -676,11 +697,14 @@ func TestRiseSetMeaningFollowsSite(t *testing.T) {
 			"Dark sky: the Sun is more than 18° below the horizon and the Moon is behind the site's skyline. " +
 				"The Sun's 18° are counted from the flat horizon, not the skyline: the glow of twilight lights the sky over the hills as well.",
 		}, std},
-		{"flat, cold air", cold(flat()), []string{
+		{"flat, cold air", cold(sea()), []string{
 			"Sunrise: the Sun's upper limb appears on the horizon (refraction for 1030 hPa and −20 °C).",
 			"Sunset: the Sun's upper limb disappears below the horizon (refraction for 1030 hPa and −20 °C).",
 			"Moonrise: the Moon's upper limb appears on the horizon (refraction for 1030 hPa and −20 °C).",
 			"Moonset: the Moon's upper limb disappears below the horizon (refraction for 1030 hPa and −20 °C).",
+		}, air},
+		{"flat from 90 m, cold air", cold(flat()), []string{
+			"Sunrise: the Sun's upper limb appears over a horizon 17′ below eye level, as seen from 90 m (refraction for 1030 hPa and −20 °C).",
 		}, air},
 		{"horizon 1.5°, cold air", cold(raised(1.5)), []string{
 			"Sunrise: the Sun's upper limb appears over the site's horizon, 1.5° high (refraction for 1030 hPa and −20 °C at that altitude).",

@@ -887,10 +887,11 @@ func kindMeaning(s *config.Site, kind string) string {
 // limbMeaning is the meaning of the rise (rising) or set of body ("Sun",
 // "Moon") at site s, kind its kind's name, in the terms the time is
 // computed in: "Sunrise: the Sun's upper limb appears on the horizon
-// (standard refraction)." over a flat horizon (the dip of its elevation
-// included), "…appears over the site's horizon, 2° high (standard
-// refraction for that altitude)." for a horizon altitude (no dip; "the
-// site's level horizon" for one written 0), and
+// (standard refraction)." over a flat horizon at sea level, "…appears over
+// a horizon 1.0° below eye level, as seen from 1150 m (…)" over the flat
+// horizon lowered by the dip of an elevation, "…appears over the site's
+// horizon, 2° high (standard refraction for that altitude)." for a horizon
+// altitude (no dip; "the site's level horizon" for one written 0), and
 // "…first appears over the site's skyline (…)" for a skyline.
 func limbMeaning(s *config.Site, kind, body string, rising bool) string {
 	var air astro.Observer
@@ -920,8 +921,26 @@ func limbMeaning(s *config.Site, kind, body string, rising bool) string {
 		if rising {
 			verb = "appears over " + over
 		}
+	case s.Elevation > 0:
+		over := "a horizon " + dipText(astro.Dip(s.Elevation)) + " below eye level, as seen from " +
+			strconv.FormatFloat(s.Elevation, 'f', -1, 64) + " m"
+		verb = "disappears behind " + over
+		if rising {
+			verb = "appears over " + over
+		}
 	}
 	return plainNames[kind] + ": the " + body + "'s upper limb " + verb + " (" + refr + ")."
+}
+
+// dipText writes the dip of the horizon d (degrees) as the meaning of rise
+// and set names it: in degrees to a tenth from 1°, "1.0°", and in whole
+// arcminutes below, "17′" (from 90 m), never less than "1′".
+func dipText(d float64) string {
+	m := math.Round(d * 60)
+	if m >= 60 {
+		return strconv.FormatFloat(d, 'f', 1, 64) + "°"
+	}
+	return strconv.FormatFloat(max(m, 1), 'f', 0, 64) + "′"
 }
 
 // horizonHeight says how high a site's horizon altitude h is: "2° high",

@@ -74,7 +74,7 @@ func TestDescriptionsOwnPerKind(t *testing.T) {
 	// photographic definitions are common practice; the caution on the eyes
 	// applies only while the Sun can be in view.
 	for name, c := range map[string]struct{ has, hasNot []string }{
-		"blue-hour":         {has: []string{"6° and 4° below the horizon", "no direct sunlight", "blue", " min)"}, hasNot: []string{"warm", cautionEyes, "(0 h"}},
+		"blue-hour":         {has: []string{"between −6° and −4°", "no direct sunlight", "blue", " min)"}, hasNot: []string{"warm", cautionEyes, "(0 h"}},
 		"golden-hour":       {has: []string{"warm", cautionEyes}},
 		"sunrise":           {has: []string{"appears", "from the day before", " min "}, hasNot: []string{"disappears", " m "}},
 		"sunset":            {has: []string{"disappears"}},

@@ -1351,12 +1351,10 @@ func FutureNote(t time.Time) string {
 // roughly writes an uncertainty as "40 s" or "1 min 20 s" rounded to 10 s.
 func roughly(d time.Duration) string { return Amount(d.Round(10 * time.Second)) }
 
-// between writes the bounds of a band: "6° and 4° below the horizon" when
-// both are at or below it, else signed: "−4° and +6°".
+// between writes the bounds of a band signed, "−4° and +6°", also when
+// both are below the horizon, "−6° and −4°": golden and blue hour side by
+// side in one description read in one convention.
 func between(lo, hi float64) string {
-	if hi <= 0 {
-		return strings.TrimPrefix(signedDegrees(-lo), "+") + " and " + strings.TrimPrefix(signedDegrees(-hi), "+") + " below the horizon"
-	}
 	return signedDegrees(lo) + " and " + signedDegrees(hi)
 }
 

@@ -342,7 +342,7 @@ func chart(id, siteName string, c *SiteChart) *chartView {
 	v := &chartView{
 		ID:    "chart-" + id,
 		Title: chartTitle(siteName, first, last, len(c.Lamps) > 0, len(c.Dark) > 0),
-		Held:  heldText(c.Held, first, last),
+		Held:  heldText(c.Held, first, last, c.Today),
 	}
 	sh := shared{
 		today:  today,
@@ -420,7 +420,10 @@ func (g geometry) draw(id, class string, c *SiteChart, sh shared) drawing {
 // heldText says, for each feed that holds fewer dates than the chart
 // first..last, on which dates its kinds are drawn: "Lamp periods of the
 // feed fernhollow-lamps drawn from 8 Jan to 14 Jul, the dates it holds."
-func heldText(held []HeldDates, first, last time.Time) string {
+// A first date before today (zero: none marked), where the chart's
+// figures do not count, is said to be in the shaded weeks before today,
+// so that it does not read as a second start beside theirs.
+func heldText(held []HeldDates, first, last, today time.Time) string {
 	var b strings.Builder
 	for _, h := range held {
 		if len(h.What) == 0 {
@@ -428,6 +431,10 @@ func heldText(held []HeldDates, first, last time.Time) string {
 		}
 		what := feed.AndList(h.What)
 		from, to := chartDate(h.First, first, last), chartDate(h.Last, first, last)
+		shaded := ""
+		if !today.IsZero() && today.After(first) && !today.After(last) && h.First.Before(today) {
+			shaded = ", in the shaded weeks before today"
+		}
 		b.WriteString(" ")
 		b.WriteString(feed.Capital(what))
 		fmt.Fprintf(&b, " of the feed %s ", h.Feed)
@@ -437,9 +444,12 @@ func heldText(held []HeldDates, first, last time.Time) string {
 		case !h.First.After(first):
 			fmt.Fprintf(&b, "drawn to %s, where it ends.", to)
 		case !h.Last.Before(last):
-			fmt.Fprintf(&b, "drawn from %s, where it begins.", from)
+			fmt.Fprintf(&b, "drawn from %s, where it begins%s.", from, shaded)
 		default:
-			fmt.Fprintf(&b, "drawn from %s to %s, the dates it holds.", from, to)
+			if shaded != "" {
+				shaded += ","
+			}
+			fmt.Fprintf(&b, "drawn from %s%s to %s, the dates it holds.", from, shaded, to)
 		}
 	}
 	return strings.TrimPrefix(b.String(), " ")

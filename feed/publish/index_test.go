@@ -748,11 +748,32 @@ func TestChartCaptionSaysFeedDates(t *testing.T) {
 		{"none", HeldDates{Feed: "old", What: []string{"red lines"}, First: first, Last: d(2026, 11, 30)},
 			"Red lines of the feed old not drawn: it holds none of the chart's dates."},
 	} {
-		if got := heldText([]HeldDates{tc.held}, first, last); got != tc.want {
+		if got := heldText([]HeldDates{tc.held}, first, last, time.Time{}); got != tc.want {
 			t.Errorf("%s: %q, want %q", tc.name, got, tc.want)
 		}
 	}
-	if got := heldText(nil, first, last); got != "" {
+	if got := heldText(nil, first, last, time.Time{}); got != "" {
 		t.Errorf("no feed of fewer dates: %q, want nothing", got)
+	}
+	// today marked on 1 January 2027, the weeks before it shaded: a feed
+	// that begins in them is said to, beside the figures counted from today
+	today := d(2027, 1, 1)
+	for _, tc := range []struct {
+		name string
+		held HeldDates
+		want string
+	}{
+		{"begins before today", HeldDates{Feed: "dark", What: []string{"dark windows"}, First: d(2026, 12, 25), Last: last},
+			"Dark windows of the feed dark drawn from 25 Dec 2026, where it begins, in the shaded weeks before today."},
+		{"both, before today", HeldDates{Feed: "spring", What: []string{"lamp periods"}, First: d(2026, 12, 25), Last: d(2027, 4, 30)},
+			"Lamp periods of the feed spring drawn from 25 Dec 2026, in the shaded weeks before today, to 30 Apr, the dates it holds."},
+		{"begins after today", HeldDates{Feed: "dark", What: []string{"dark windows"}, First: d(2027, 1, 10), Last: last},
+			"Dark windows of the feed dark drawn from 10 Jan, where it begins."},
+		{"begins on today", HeldDates{Feed: "dark", What: []string{"dark windows"}, First: today, Last: last},
+			"Dark windows of the feed dark drawn from 1 Jan, where it begins."},
+	} {
+		if got := heldText([]HeldDates{tc.held}, first, last, today); got != tc.want {
+			t.Errorf("%s: %q, want %q", tc.name, got, tc.want)
+		}
 	}
 }

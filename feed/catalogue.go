@@ -1095,6 +1095,7 @@ func (w *entryWriter) begin(spec *config.KindSpec, evs []Event, specs []config.K
 	st.lamp = nil
 	if spec.Kind.Name == config.KindLighting {
 		st.lamp = w.lightingText(spec)
+		st.lamp.lightingBoth(spec, evs)
 	}
 	off := offsetText(time.Duration(spec.Offset))
 	st.prefix = append(append(append(append(append(st.prefix[:0], w.feedID...), '|'), st.kind...), '|'), off...)

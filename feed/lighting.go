@@ -778,6 +778,10 @@ type lightingText struct {
 	// line, without its newline ("; target 16 h.\nClipped (off no later
 	// than 23:00): the target is not reached today.")
 	tail [2][2][2]string
+	// both are the events of the kinds entry being written when its lamps
+	// are both (lightingBoth), at the index of the next one; nil otherwise
+	both []Event
+	at   int
 }
 
 // lampLeads begin the description of a morning (0) or evening (1) period.
@@ -919,6 +923,9 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 				b = append(append(b, "; off "...), m...)
 			}
 		}
+		if lt.both != nil {
+			b = lt.appendOtherLamps(b, s, e, pi)
+		}
 		b = append(b, lt.open...)
 		return append(appendHM(b, e.DayLength), lt.tail[pi][b2i(l.Clipped)][b2i(l.Short)]...), t, row
 	}
@@ -946,6 +953,9 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		if m := movedLimit(s.zone, e.End, lt.off); m != "" {
 			b = append(append(b, "; "...), m...)
 		}
+	}
+	if lt.both != nil {
+		b = lt.appendOtherLamps(b, s, e, pi)
 	}
 	switch {
 	case whole && l.Clipped:
@@ -991,6 +1001,67 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		b = append(b, "The target is not reached today.\n"...)
 	}
 	return b[:len(b)-1], t, row // without the last line's newline
+}
+
+// otherLamps name the other period of lamps: both, after a morning (0) or
+// an evening (1) period's length.
+var otherLamps = [2]string{"; evening lamps ", "; morning lamps "}
+
+// appendOtherLamps appends, in the bracket after a period's length, the
+// date's other period of lamps: both, if it has one (otherPeriod), with its
+// clock times as its title writes them and its length, so that the entry's
+// numbers add up to the target: "; evening lamps 15:34–20:18, 4 h 44 min".
+func (lt *lightingText) appendOtherLamps(b []byte, s *siteInfo, e *Event, pi int) []byte {
+	o := lt.otherPeriod(e)
+	if o == nil {
+		return b
+	}
+	from, to := o.Start, o.End
+	on, off := shownAt(from, s.zone), shownAt(to, s.zone)
+	b = append(b, otherLamps[pi]...)
+	b = append(b, byte('0'+on.hm/10), byte('0'+on.hm%10), ':', byte('0'+on.mm/10), byte('0'+on.mm%10), 0xe2, 0x80, 0x93,
+		byte('0'+off.hm/10), byte('0'+off.hm%10), ':', byte('0'+off.mm/10), byte('0'+off.mm%10))
+	last := to.Unix() // the period's last instant's second, as the title finds it
+	if to.Nanosecond() == 0 {
+		last--
+	}
+	if s.zone.dayOf(last) != e.Date.Unix()/secondsPerDay {
+		b = append(b, " +1 day"...)
+	}
+	return appendHM(append(b, ',', ' '), to.Sub(from))
+}
+
+// otherPeriod returns the other period of e's date among the events of a
+// lamps: both kind, which are written in order (both, at: lightingBoth),
+// e's morning or evening beside it; nil when its date has one period.
+func (lt *lightingText) otherPeriod(e *Event) *Event {
+	evs, i := lt.both, lt.at
+	for i < len(evs) && &evs[i] != e {
+		i++
+	}
+	if i == len(evs) {
+		return nil
+	}
+	lt.at = i + 1
+	for _, j := range [2]int{i - 1, i + 1} {
+		if j < 0 || j >= len(evs) {
+			continue
+		}
+		if o := &evs[j]; o.Date.Equal(e.Date) && o.Part != e.Part && (o.Part == partMorning || o.Part == partEvening) {
+			return o
+		}
+	}
+	return nil
+}
+
+// lightingBoth tells lt the events of a kinds entry about to be written,
+// evs, which with lamps: both (spec's) name each other's period; nil for
+// another lamps.
+func (lt *lightingText) lightingBoth(spec *config.KindSpec, evs []Event) {
+	lt.both, lt.at = nil, 0
+	if spec.Lamps == config.LampsBoth {
+		lt.both = evs
+	}
 }
 
 // sentenceHM appends hm(d) at the start of a sentence: "Under 1 min", not

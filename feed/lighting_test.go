@@ -678,10 +678,15 @@ func TestLightingMeaningOncePerCalendar(t *testing.T) {
 		if e.Kind == "lighting:14h30m" {
 			target = "14 h 30 min"
 		}
-		line := Capital(e.Facts.Part) + " lamps on at " + localClock(e.Start, loc) + ", off at " + localClock(e.End, loc) + " (" + hm(e.Facts.Lamp) + ").\n" +
-			"Natural day " + hm(e.Facts.DayLength) + "; target " + target + "."
-		if !strings.HasPrefix(e.Description, line) {
-			t.Errorf("%s %s: description\n%s\nwant it to start\n%s", e.Date.Format(time.DateOnly), e.Kind, e.Description, line)
+		// (lamps: both) and the date's other period, by its clock times
+		// and length (TestLightingBothNamesTheOtherPeriod)
+		line := Capital(e.Facts.Part) + " lamps on at " + localClock(e.Start, loc) + ", off at " + localClock(e.End, loc) + " (" + hm(e.Facts.Lamp)
+		if e.Kind == "lighting:14h30m" {
+			line += "; " + otherPart(e.Facts.Part) + " lamps "
+		}
+		natural := ").\nNatural day " + hm(e.Facts.DayLength) + "; target " + target + "."
+		if !strings.HasPrefix(e.Description, line) || !strings.Contains(e.Description, natural) {
+			t.Errorf("%s %s: description\n%s\nwant it to start\n%s…%s", e.Date.Format(time.DateOnly), e.Kind, e.Description, line, natural)
 		}
 		if e.Facts.Short != strings.Contains(e.Description, "the target is not reached today") {
 			t.Errorf("%s %s: short %v:\n%s", e.Date.Format(time.DateOnly), e.Kind, e.Facts.Short, e.Description)

@@ -345,31 +345,21 @@ type OffsetChange struct {
 
 // OffsetChanges yields the changes of loc's UTC offset after from and
 // before to, in order (a change of the zone's abbreviation alone is none).
-// It walks time.Time.ZoneBounds, one period of the zone at a time, and
-// steps over a bound that does not move on: past the zone data's last
-// transition Go's ZoneBounds gives, in a leap year, 31 December 00:00 UTC
-// as the end of the period for the whole of that day (Go 1.26:
-// Europe/Zurich in 2040), so a walk that took it as the next start never
-// ended. That day is then stepped over whole, its offsets at both ends
-// compared (a change within it, which no zone has, would be given at its
-// end). The missing dates of a listing and the served tables' line of a
-// change of the clocks walk the changes here.
+// It walks astro.ZoneChanges, which steps over the bounds Go's ZoneBounds
+// gives past the zone data's last transition without a change (in a leap
+// year, 31 December 00:00 UTC as the end of the period for the whole of
+// that day: Go 1.26, Europe/Zurich in 2040). The missing dates of a
+// listing and the served tables' line of a change of the clocks walk the
+// changes here.
 func OffsetChanges(loc *time.Location, from, to time.Time) iter.Seq[OffsetChange] {
 	return func(yield func(OffsetChange) bool) {
 		_, before := from.In(loc).Zone()
-		for t := from; ; {
-			_, next := t.In(loc).ZoneBounds()
-			if !next.After(t) && !next.IsZero() {
-				next = t.Add(24 * time.Hour)
-			}
-			if next.IsZero() || !next.Before(to) {
+		for at := range astro.ZoneChanges(loc, from, to) {
+			_, after := at.Zone()
+			if after != before && !yield(OffsetChange{At: at, Before: before, After: after}) {
 				return
 			}
-			_, after := next.In(loc).Zone()
-			if after != before && !yield(OffsetChange{At: next, Before: before, After: after}) {
-				return
-			}
-			t, before = next, after
+			before = after
 		}
 	}
 }

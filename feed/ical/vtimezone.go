@@ -4,6 +4,8 @@ import (
 	"time"
 
 	ics "github.com/arran4/golang-ical"
+
+	"heliocal/astro"
 )
 
 // observance is one STANDARD or DAYLIGHT sub-component of a VTIMEZONE: from
@@ -18,9 +20,9 @@ type observance struct {
 // observances lists the offset changes of loc over [from, to], from Go's time
 // zone database: first one observance at from with From = To (the offset in
 // effect there), then one per change after it. It walks
-// time.Time.ZoneBounds and skips bounds where neither the offset nor the
-// abbreviation changes (Go reports such bounds, e.g. at year boundaries past
-// the last stored transition).
+// the changes of the zone's offset or abbreviation (nextChange), never a
+// bound where neither changes (Go reports such bounds, e.g. at year
+// boundaries past the last stored transition).
 //
 // An observance is DAYLIGHT when clocks go forward into it and STANDARD when
 // they go back, the way calendar clients expect. The tz database's own flag
@@ -60,19 +62,17 @@ func observances(loc *time.Location, from, to time.Time) []observance {
 	}
 }
 
-// nextChange walks the zone bounds of loc after t, up to limit, and returns
-// the first one whose abbreviation and offset satisfy changed.
+// nextChange walks the changes of loc's offset or abbreviation after t, up
+// to limit (astro.ZoneChanges, which steps over the bounds Go gives without
+// a change past the zone data's last transition), and returns the first
+// whose abbreviation and offset satisfy changed.
 func nextChange(loc *time.Location, t, limit time.Time, changed func(name string, off int) bool) (int, time.Time, bool) {
-	for {
-		_, end := t.In(loc).ZoneBounds()
-		if end.IsZero() || !end.After(t) || end.After(limit) {
-			return 0, time.Time{}, false
+	for at := range astro.ZoneChanges(loc, t, limit.Add(time.Nanosecond)) {
+		if n, o := at.Zone(); changed(n, o) {
+			return o, at, true
 		}
-		if n, o := end.In(loc).Zone(); changed(n, o) {
-			return o, end, true
-		}
-		t = end
 	}
+	return 0, time.Time{}, false
 }
 
 // vtimezone builds the VTIMEZONE for tzid with the observances of loc over

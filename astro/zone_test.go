@@ -96,3 +96,42 @@ func offsetOf(t time.Time) int {
 	_, off := t.Zone()
 	return off
 }
+
+// TestZonePeriod: the period that holds an instant on 31 December of a leap
+// year past 2037 ends after it (Go's ZoneBounds gives 31 December 00:00 UTC
+// for every instant of the day); elsewhere it is ZoneBounds' own. zdump -v
+// -c 2040,2042 Europe/Zurich (Debian GLIBC 2.36): CET from 28 October 2040
+// 01:00 UTC to 31 March 2041 01:00 UTC; America/New_York: EST from 4
+// November 2040 06:00 UTC to 10 March 2041 07:00 UTC.
+func TestZonePeriod(t *testing.T) {
+	for _, tc := range []struct {
+		zone, at     string
+		start        string
+		endAfter, by string // the end is after endAfter and not after by
+	}{
+		{"Europe/Zurich", "2040-12-31T00:00:00Z", "2040-10-28T01:00:00Z", "2040-12-31T00:00:00Z", "2041-03-31T01:00:00Z"},
+		{"Europe/Zurich", "2040-12-31T12:00:00Z", "2040-10-28T01:00:00Z", "2040-12-31T12:00:00Z", "2041-03-31T01:00:00Z"},
+		{"Europe/Zurich", "2040-12-31T23:59:59Z", "2040-10-28T01:00:00Z", "2040-12-31T23:59:59Z", "2041-03-31T01:00:00Z"},
+		{"America/New_York", "2040-12-31T20:00:00Z", "2040-11-04T06:00:00Z", "2040-12-31T20:00:00Z", "2041-03-10T07:00:00Z"},
+		// not a leap year: ZoneBounds' end, 1 January 00:00 UTC
+		{"Europe/Zurich", "2041-12-31T12:00:00Z", "2041-10-27T01:00:00Z", "2041-12-31T12:00:00Z", "2042-01-01T00:00:00Z"},
+	} {
+		loc, err := time.LoadLocation(tc.zone)
+		if err != nil {
+			t.Fatal(err)
+		}
+		at, _ := time.Parse(time.RFC3339, tc.at)
+		after, _ := time.Parse(time.RFC3339, tc.endAfter)
+		by, _ := time.Parse(time.RFC3339, tc.by)
+		start, end := ZonePeriod(at.In(loc))
+		if got := start.UTC().Format(time.RFC3339); got != tc.start {
+			t.Errorf("%s %s: start %s, want %s", tc.zone, tc.at, got, tc.start)
+		}
+		if !end.After(after) || end.After(by) {
+			t.Errorf("%s %s: end %s, want after %s and not after %s", tc.zone, tc.at, end.UTC(), tc.endAfter, tc.by)
+		}
+		if end.Location() != loc {
+			t.Errorf("%s %s: end in %s", tc.zone, tc.at, end.Location())
+		}
+	}
+}

@@ -210,3 +210,31 @@ func TestZoneLabel(t *testing.T) {
 		}
 	}
 }
+
+// TestZoneCacheLeapYearEnd: on 31 December of a leap year past the tz
+// database's last transition (2037), the zone's next change is after the
+// instant asked about (Go's ZoneBounds gives 31 December 00:00 UTC as the
+// end of the period), not after the next real change (zdump -v -c
+// 2040,2042 Europe/Zurich, Debian GLIBC 2.36: CET, +01:00, from 28 October
+// 2040 to 31 March 2041 01:00 UTC), and the day's instants are answered
+// from the one period looked up.
+func TestZoneCacheLeapYearEnd(t *testing.T) {
+	loc, err := time.LoadLocation("Europe/Zurich")
+	if err != nil {
+		t.Fatal(err)
+	}
+	z := newZoneCache(loc)
+	day := time.Date(2040, 12, 31, 0, 0, 0, 0, time.UTC).Unix()
+	spring := time.Date(2041, 3, 31, 1, 0, 0, 0, time.UTC).Unix()
+	for u := day; u < day+secondsPerDay; u += 600 {
+		if next := z.nextChange(u); next <= u || next > spring {
+			t.Fatalf("nextChange(%s) = %s", time.Unix(u, 0).UTC(), time.Unix(next, 0).UTC())
+		}
+		if name, off := z.at(u); name != "CET" || off != 3600 {
+			t.Fatalf("at(%s) = %s %d, want CET 3600", time.Unix(u, 0).UTC(), name, off)
+		}
+	}
+	if z.nseen != 1 {
+		t.Errorf("%d periods looked up for one day, want 1", z.nseen)
+	}
+}

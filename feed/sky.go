@@ -1653,7 +1653,7 @@ func (c *collector) dayStarts() []time.Time {
 			d := c.first.AddDate(0, 0, i-1)
 			c.starts[i] = midnight(d, c.p.Location)
 			local := c.starts[i].In(c.p.Location)
-			_, end = local.ZoneBounds()
+			_, end = astro.ZonePeriod(local)
 			h, m, sec := local.Clock()
 			known = h == 0 && m == 0 && sec == 0 && local.Nanosecond() == 0 && civil(local).Equal(d)
 		}

@@ -166,7 +166,7 @@ func (z *zoneCache) lookup(u int64) {
 	lt := time.Unix(u, 0).In(z.loc)
 	name, off := lt.Zone()
 	name = ZoneLabel(name)
-	from, to := lt.ZoneBounds()
+	from, to := astro.ZonePeriod(lt)
 	z.name, z.off, z.from, z.to = name, int64(off), math.MinInt64, math.MaxInt64
 	if !from.IsZero() {
 		z.from = from.Unix()

@@ -65,6 +65,7 @@ import (
 
 	ics "github.com/arran4/golang-ical"
 
+	"heliocal/astro"
 	"heliocal/feed"
 )
 
@@ -876,7 +877,7 @@ func (w *writer) offsetAt(t time.Time) (int64, bool) {
 func zoneSpanAt(t time.Time, loc *time.Location) offsetSpan {
 	lt := t.In(loc)
 	_, off := lt.Zone()
-	start, end := lt.ZoneBounds()
+	start, end := astro.ZonePeriod(lt)
 	s := offsetSpan{from: math.MinInt64, to: math.MaxInt64, off: int64(off),
 		ambBefore: math.MinInt64, ambFrom: math.MaxInt64}
 	if !start.IsZero() {

@@ -132,3 +132,23 @@ func TestZurichAcrossLeapYearEnd(t *testing.T) {
 		t.Error("no event in the summer of 2041: the test no longer covers it")
 	}
 }
+
+// TestZoneSpanLeapYearEnd: the offset period that holds an instant on 31
+// December 2040 holds it (Go's ZoneBounds gives that day's 00:00 UTC as its
+// end), with Zurich's offset then, +01:00, and no hour shown twice (zdump
+// -v -c 2040,2042 Europe/Zurich, Debian GLIBC 2.36: CET from 28 October
+// 2040 01:00 UTC to 31 March 2041 01:00 UTC).
+func TestZoneSpanLeapYearEnd(t *testing.T) {
+	loc := mustLoad(t, "Europe/Zurich")
+	for _, at := range []time.Time{time.Date(2040, 12, 31, 0, 0, 0, 0, time.UTC), time.Date(2040, 12, 31, 12, 0, 0, 0, time.UTC),
+		time.Date(2040, 12, 31, 23, 59, 59, 0, time.UTC)} {
+		s := zoneSpanAt(at, loc)
+		u := at.Unix()
+		if u < s.from || u >= s.to {
+			t.Errorf("%s: period %s..%s does not hold it", at, time.Unix(s.from, 0).UTC(), time.Unix(s.to, 0).UTC())
+		}
+		if s.off != 3600 || u < s.ambBefore || u >= s.ambFrom {
+			t.Errorf("%s: offset %d, ambiguous %v; want 3600, false", at, s.off, u < s.ambBefore || u >= s.ambFrom)
+		}
+	}
+}

@@ -373,6 +373,8 @@ func TestBrowserBuilder(t *testing.T) {
 		chromedp.SetValue(id("horizon"), "0"),
 		chromedp.Evaluate[chromedp.Void](`document.getElementById("builder").dispatchEvent(new Event("input"))`),
 		chromedp.Poll[chromedp.Void](`document.getElementById("message").hidden`),
+		// 0 is a level horizon (no dip of the elevation): the link says it
+		chromedp.Poll[chromedp.Void](`/[?&]horizon=0(&|$)/.test(document.getElementById("https").value)`),
 	); err != nil {
 		v, _ := chromedp.Run(ctx, chromedp.Evaluate[string](`document.getElementById("message").textContent`))
 		t.Fatalf("a bad skyline in the builder: %v (message %q)", err, v)

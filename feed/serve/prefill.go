@@ -38,7 +38,7 @@ var builderParams = []string{ParamLatitude, ParamLongitude, ParamElevation, Para
 // shifted as the query asks (kindGroups, unchanged, when it names none the
 // builder has a box for).
 func (s *Server) builderFill(raw, today string) (builderFill, []kindGroup) {
-	r := filler{f: builderFill{Elev: "0", Horizon: "0", Alarm: "0", Start: today}, lim: *s.limits}
+	r := filler{f: builderFill{Elev: "0", Alarm: "0", Start: today}, lim: *s.limits}
 	if raw == "" {
 		return r.f, kindGroups
 	}
@@ -87,9 +87,12 @@ func (s *Server) builderFill(raw, today string) (builderFill, []kindGroup) {
 	})
 	r.read(ParamHorizon, func(get getter) error {
 		err := q.parseExtras(get, &r.lim)
-		f.Horizon = strconv.FormatFloat(q.Horizon, 'f', -1, 64)
-		if len(q.Skyline) > 0 {
+		switch {
+		case err != nil:
+		case len(q.Skyline) > 0:
 			f.Horizon = q.skylineText()
+		case q.Horizon != 0 || q.HorizonSet: // 0 written: a level horizon, no dip
+			f.Horizon = strconv.FormatFloat(q.Horizon, 'f', -1, 64)
 		}
 		return err
 	})
@@ -321,7 +324,7 @@ func (q AdhocQuery) builderQuery(start string) string {
 	switch {
 	case len(q.Skyline) > 0:
 		v.Set(ParamHorizon, q.skylineText())
-	case q.Horizon != 0:
+	case q.Horizon != 0 || q.HorizonSet:
 		v.Set(ParamHorizon, strconv.FormatFloat(q.Horizon, 'f', -1, 64))
 	}
 	v.Set(ParamKinds, strings.Join(q.Kinds, ","))

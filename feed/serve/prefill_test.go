@@ -87,6 +87,12 @@ func TestMakeAnotherFillsBuilder(t *testing.T) {
 			map[string]string{"lat": "47.8", "lon": "13.05", "elev": "0", "name": "", "horizon": "2.5", "tz": "Europe/Vienna",
 				"k-civil-dawn": "off", "k-sunrise": "on", "k-sunset": "off", "k-golden-hour": "off", "off-sunrise": "0", "off-sunset": "0",
 				"lighting": "", "alarm": "0", "start": "2026-12-02"}},
+		// a plateau site: horizon=0 written is a level horizon without the
+		// dip of its 1,150 m, and stays so through the builder
+		{"level horizon", "lat=-31.27&lon=149.07&elev=1150&horizon=0&kinds=sunrise",
+			map[string]string{"lat": "-31.27", "lon": "149.07", "elev": "1150", "name": "", "horizon": "0", "tz": "",
+				"k-civil-dawn": "off", "k-sunrise": "on", "k-sunset": "off", "k-golden-hour": "off", "off-sunrise": "0", "off-sunset": "0",
+				"lighting": "", "alarm": "0", "start": "2026-12-02"}},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			table := body(t, get(t, h, "GET", "/at?"+tc.table))
@@ -126,7 +132,7 @@ func TestBuilderFillIgnoresBadValues(t *testing.T) {
 	page := body(t, get(t, h, "GET", "/?lat=-41.2865&lon=174.7762&tz=Pacific/Aukland&elev=high&kinds=sunrise,sunrize,sun-altitude:10,lighting:16h,lighting:12h"+
 		"&offsets=golden-hour:10m,sunrise:-15m&days=31&utc=true&colour=red&name=Te+Aro&name=Kelburn"))
 	got := formState(t, page, formIDs...)
-	want := map[string]string{"lat": "-41.2865", "lon": "174.7762", "elev": "0", "name": "", "horizon": "0", "tz": "",
+	want := map[string]string{"lat": "-41.2865", "lon": "174.7762", "elev": "0", "name": "", "horizon": "", "tz": "",
 		"k-civil-dawn": "off", "k-sunrise": "on", "k-sunset": "off", "k-golden-hour": "off", "off-sunrise": "-15", "off-sunset": "0",
 		"lighting": "16", "alarm": "0", "start": "2026-12-02"}
 	for _, id := range formIDs {

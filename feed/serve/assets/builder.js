@@ -47,7 +47,7 @@ function query(withStart) {
   const num = (id) => $(id).value.trim();
   if (num("elev") !== "" && num("elev") !== "0") p.set("elev", num("elev"));
   const horizon = num("horizon").replace(/\s+/g, "");
-  if (horizon !== "" && horizon !== "0") p.set("horizon", horizon);
+  if (horizon !== "") p.set("horizon", horizon); // 0 too: a level horizon, without the dip of the elevation
   if ($("name").value.trim() !== "") p.set("name", $("name").value.trim());
   if ($("tz").value.trim() !== "") p.set("tz", $("tz").value.trim());
   if (num("alarm") !== "" && num("alarm") !== "0") p.set("alarm", num("alarm") + "m");

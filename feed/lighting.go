@@ -951,7 +951,7 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	b = append(append(b, " ("...), lampHM...)
 	if l.Clipped && e.Part != partMorning && lt.offSec >= 0 && off.second() != lt.offSec {
 		if m := movedLimit(s.zone, e.End, lt.off); m != "" {
-			b = append(append(b, "; "...), m...)
+			b = append(append(b, "; off "...), m...) // as the text above words it
 		}
 	}
 	if lt.both != nil {

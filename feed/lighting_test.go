@@ -877,9 +877,28 @@ func TestLightingLimitSkippedByTheClocks(t *testing.T) {
 			t.Errorf("%s: %s–%s %q\nwant the limit at %s and %q", tc.kind, e.Start, e.End, e.Description, at, tc.want)
 		}
 	}
+	// an evening period that makes up for the morning's (not the text of
+	// a period alone) words its moved end the same way: in
+	// America/Santiago the clocks go from 00:00 −04 to 01:00 −03 on Sunday
+	// 5 September 2027 (IANA tz database, Rule Chile 2023 max - Sep Sun>=2
+	// 4:00u; zdump -v America/Santiago), so latest_off 00:30 clips the
+	// lamps of the 4th at 01:30 −03, 04:30 UT
+	santiago := site(t, "santiago", -33.45, -70.67, "America/Santiago")
+	spec := lightingSpec(t, "lighting:22h", func(ks *config.KindSpec) {
+		ks.Lamps, ks.EarliestOn, ks.LatestOff = config.LampsBoth, "06:30", "00:30"
+	})
+	es, err := sk.Entries(context.Background(), santiago, "f", []config.KindSpec{spec}, date("2027-09-04"), date("2027-09-04"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	const evening = "; off moved from 00:30, which the clocks skip on Sun 5 Sep 2027: the clocks go forward for summer time by 1 h; morning lamps "
+	if len(es) != 2 || !es[1].End.Equal(time.Date(2027, 9, 5, 4, 30, 0, 0, time.UTC)) || !strings.Contains(es[1].Description, "to make up for the morning lamps") ||
+		!strings.Contains(es[1].Description, evening) {
+		t.Errorf("%+v\nwant an evening period making up, off at 04:30 UT, saying %q", es, evening)
+	}
 	// the date after, 00:30 is on the clock again: no such words
-	spec := lightingSpec(t, "lighting:20h", func(ks *config.KindSpec) { ks.Lamps, ks.EarliestOn = config.LampsMorning, "00:30" })
-	es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date("2027-03-29"), date("2027-03-29"))
+	spec = lightingSpec(t, "lighting:20h", func(ks *config.KindSpec) { ks.Lamps, ks.EarliestOn = config.LampsMorning, "00:30" })
+	es, err = sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date("2027-03-29"), date("2027-03-29"))
 	if err != nil {
 		t.Fatal(err)
 	}

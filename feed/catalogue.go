@@ -151,7 +151,7 @@ func (sky *Sky) Calendar(ctx context.Context, s *config.Site, f *config.Feed, fi
 	if err != nil {
 		return nil, fmt.Errorf("feed %q: %w", f.ID, err)
 	}
-	cal.Entries, cal.text, cal.NotCrossed = entries, text, found.notCrossed
+	cal.Entries, cal.text, cal.NotCrossed, cal.SkippedPlans = entries, text, found.notCrossed, found.skippedPlans
 	noteLampLimitGaps(s, f, cal, found.gaps)
 	return cal, nil
 }

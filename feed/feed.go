@@ -183,6 +183,12 @@ type Calendar struct {
 	// whether or not the kinds entries' months, weekdays and dates keep a
 	// date for them.
 	NotCrossed []KindNote
+	// SkippedPlans are the plans of the feed with a date of the window
+	// that the clocks skip whole (30 December 2011 in Pacific/Apia), which
+	// their filters keep: a plan has no entry on a date that does not
+	// exist. A weekday rule of an event ("friday nearest full-moon") takes
+	// another date instead and is not among them.
+	SkippedPlans []SkippedPlan
 
 	// text is the memory of the entries' descriptions and UIDs, when the
 	// catalogue made them as substrings of one buffer: Release hands it
@@ -193,6 +199,14 @@ type Calendar struct {
 // FirstDate is the first local date of the window (00:00 UTC), as the
 // calendar was built for it: the date it is stamped with (Stamp).
 func (c *Calendar) FirstDate() time.Time { return c.Stamp }
+
+// SkippedPlan is a plan whose dates Dates (00:00 UTC, ascending) the
+// clocks of the site's zone skip whole: Title and Date are the plan's
+// title and date rule as written.
+type SkippedPlan struct {
+	Title, Date string
+	Dates       []time.Time
+}
 
 // KindNote is a note of a kind as a feed words it: the kind, as in the
 // configuration, and the note's title.

@@ -130,15 +130,18 @@ func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed,
 	if es, text, err = sky.planEntries(col, s, f.ID, parsed, kinds, pd, es, text); err != nil {
 		return nil, nil, found{}, err
 	}
-	return sortEntries(es), text, col.found(), nil
+	fd := col.found()
+	fd.skippedPlans = pd.skipped
+	return sortEntries(es), text, fd, nil
 }
 
 // found is what feedEntries finds beside the entries: the lighting limits
 // that do nothing on some dates (nil when not looked for), the notes of the
-// photoperiod thresholds no date crosses.
+// photoperiod thresholds no date crosses, the plans' dates the clocks skip.
 type found struct {
-	gaps       *limitGaps
-	notCrossed []KindNote
+	gaps         *limitGaps
+	notCrossed   []KindNote
+	skippedPlans []SkippedPlan
 }
 
 // found is what c found beside the entries.
@@ -190,11 +193,13 @@ func parsePlans(plans []config.Plan) ([]*plan, []config.KindSpec, error) {
 }
 
 // planDates are the dates of a feed's plans within its window, by plan,
-// with how many dates look up each kind's time and how many there are.
+// with how many dates look up each kind's time and how many there are, and
+// the plans' dates that the clocks skip whole, which have no entry.
 type planDates struct {
-	dates [][]planDate
-	uses  map[config.Kind]int
-	total int
+	dates   [][]planDate
+	uses    map[config.Kind]int
+	total   int
+	skipped []SkippedPlan
 }
 
 // allPlanDates lists the dates of each plan that its filters keep.
@@ -206,11 +211,19 @@ func (sky *Sky) allPlanDates(col *collector, parsed []*plan) (planDates, error) 
 			return pd, fmt.Errorf("plan %q: %w", pl.cfg.Title, err)
 		}
 		n := 0
+		var gone []time.Time
 		for _, d := range ds {
-			if pl.filter.Allows(d.date) && !col.gone(d.date) { // no plan on a date the clocks jump over
+			switch {
+			case !pl.filter.Allows(d.date):
+			case col.gone(d.date): // no plan on a date the clocks jump over
+				gone = append(gone, d.date)
+			default:
 				ds[n] = d
 				n++
 			}
+		}
+		if gone != nil {
+			pd.skipped = append(pd.skipped, SkippedPlan{Title: pl.cfg.Title, Date: pl.cfg.Date, Dates: gone})
 		}
 		pd.dates[i] = ds[:n]
 		pd.total += n

@@ -166,3 +166,25 @@ func filterWords(p config.Plan) string {
 	}
 	return " within its " + strings.Join(parts, " and ")
 }
+
+// skippedPlanNotes notes, one line per plan of feed f, the dates of its
+// plans in cal's window that the clocks of the site's zone skip whole
+// (Calendar.SkippedPlans): such a date does not exist, and the plan has no
+// entry on it, as docs/configuration.md says. check and events --feed
+// write them.
+func skippedPlanNotes(f *config.Feed, cal *feed.Calendar) []string {
+	var out []string
+	for _, p := range cal.SkippedPlans {
+		dates := make([]string, len(p.Dates))
+		for i, d := range p.Dates {
+			dates[i] = d.Format("2006-01-02 (Mon)")
+		}
+		list, verb, it := dates[0], "does", "that date"
+		if n := len(dates); n > 1 {
+			list, verb, it = strings.Join(dates[:n-1], ", ")+" and "+dates[n-1], "do", "those dates"
+		}
+		out = append(out, fmt.Sprintf("feed %q: plan %q (%s): %s %s not exist in %s, whose clocks skip %s whole: the plan has no entry there",
+			f.ID, p.Title, p.Date, list, verb, cal.Site.Location, it))
+	}
+	return out
+}

@@ -162,3 +162,62 @@ func TestEventPlanWarningNamesFilters(t *testing.T) {
 		}
 	}
 }
+
+// skippedFeed is a feed at Apia, whose clocks went from 23:59:59 on 29
+// December 2011 to 00:00 on 31 December (UTC−10 to UTC+14; IANA tz
+// database, Pacific/Apia; zdump -v Pacific/Apia), checked on 5 January
+// 2012 with the 30 days before it: Friday 30 December 2011 does not exist
+// there. The weekly, yearly and one-off plans on it have no entry; "June"
+// leaves December out by its months, and the Friday nearest the first
+// quarter of Sunday 1 January 2012 moves to Friday 6 January instead.
+const skippedFeed = `sites:
+  - {id: vailima, latitude: -13.86, longitude: -171.77, timezone: Pacific/Apia}
+feeds:
+  - id: apia-plans
+    site: vailima
+    days_back: 30
+    days_ahead: 10
+    plans:
+      - {title: Film, date: every friday, start: sunset}
+      - {title: Party, date: every 12-30}
+      - {title: Once, date: 2011-12-30, start: "20:00"}
+      - {title: June, date: every day, months: [jun]}
+      - {title: Quarter, date: friday nearest first-quarter}
+`
+
+// check notes each plan whose date the clocks skip, once, naming the plan
+// and the date.
+func TestSkippedPlanNotes(t *testing.T) {
+	r := checkReportOf(t, skippedFeed, time.Date(2012, 1, 5, 12, 0, 0, 0, time.UTC))
+	var got []string
+	for _, n := range r.Notes {
+		if strings.Contains(n, "2011-12-30") {
+			got = append(got, n)
+		}
+	}
+	want := []string{
+		`feed "apia-plans": plan "Film" (every friday): 2011-12-30 (Fri) does not exist in Pacific/Apia, whose clocks skip that date whole: the plan has no entry there`,
+		`feed "apia-plans": plan "Party" (every 12-30): 2011-12-30 (Fri) does not exist in Pacific/Apia, whose clocks skip that date whole: the plan has no entry there`,
+		`feed "apia-plans": plan "Once" (2011-12-30): 2011-12-30 (Fri) does not exist in Pacific/Apia, whose clocks skip that date whole: the plan has no entry there`,
+	}
+	if !slices.Equal(got, want) {
+		t.Errorf("notes:\n%s\nwant:\n%s", strings.Join(r.Notes, "\n"), strings.Join(want, "\n"))
+	}
+	// events --feed says the same on standard error, over the dates asked
+	path := writeConfig(t, skippedFeed)
+	code, _, errOut := runCLI(t, "events", "--config", path, "--feed", "apia-plans", "--from", "2011-12-28", "--to", "2012-01-07")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	var lines []string
+	for _, w := range want {
+		lines = append(lines, "heliocal: note: "+w)
+	}
+	if errOut != strings.Join(lines, "\n")+"\n" {
+		t.Errorf("events --feed: stderr\n%s\nwant\n%s", errOut, strings.Join(lines, "\n"))
+	}
+	// a window without the date: no note
+	if code, _, errOut = runCLI(t, "events", "--config", path, "--feed", "apia-plans", "--from", "2011-12-31", "--to", "2012-01-07"); code != 0 || errOut != "" {
+		t.Errorf("31 December on: exit %d, stderr %q", code, errOut)
+	}
+}

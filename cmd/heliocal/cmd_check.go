@@ -37,7 +37,8 @@ latest_off (earliest_on) that comes before the evening lamps start (after the mo
 end) on some dates, and so does not limit them there, gets a warning too, as does a
 date a kinds entry lists or a plan is on before the feed's window, or that the entry's own
 months or weekdays leave out: it is never published. One after the window gets a note: it
-is published once the window reaches it. A photoperiod threshold no date of the window
+is published once the window reaches it; so does a plan's date of the window that the
+clocks skip whole (30 December 2011 in Pacific/Apia): the plan has no entry there. A photoperiod threshold no date of the window
 crosses gets a warning whatever the dates its kinds entry keeps, as do a plan whose date is
 an event of the sky (photoperiod:20h, full-moon) that no date of the window has, a plan on
 29 February (every 02-29) whose window holds none, an alarm on all-day entries (calendars set no reminder
@@ -327,6 +328,7 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		r.Warnings = append(r.Warnings, eventPlanWarnings(&f, rules, cal)...)
 		r.Warnings = append(r.Warnings, allDayWarnings(&f, shown)...)
 		r.Notes = append(r.Notes, later...)
+		r.Notes = append(r.Notes, skippedPlanNotes(&f, cal)...)
 		// encoded as publish and serve encode it, under service.oversize:
 		// as it is, shortened, or refused
 		cf := checkFeed{ID: f.ID, Site: f.Site, Kinds: kinds, KindsShown: shown, Plans: len(f.Plans), DaysBack: f.DaysBack, DaysAhead: f.DaysAhead}

@@ -84,6 +84,9 @@ func runEventsFeed(ctx context.Context, g *globals, o *eventsOptions) error {
 	if site.ZoneInferred { // as events --site says it
 		fmt.Fprintf(g.stderr, "heliocal: note: %s\n", zoneNote(site, noonOn(first, site.TimeZone.Location), ""))
 	}
+	for _, n := range skippedPlanNotes(f, cal) { // as check notes them
+		fmt.Fprintf(g.stderr, "heliocal: note: %s\n", n)
+	}
 	switch o.format {
 	case "ics":
 		data, err := ical.Marshal(cal, ical.Options{Version: versionString()})

@@ -341,6 +341,10 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-earliest-on.yaml", "feeds[0].kinds[0].earliest_on", "5am", "not a clock time", `the clock has 24 hours: write it "05:00"`, 0},
 		{"lamps-wrong-kind.yaml", "feeds[0].kinds[0].lamps", "evening", "applies only to lighting", "", 0},
 		{"bad-lighting.yaml", "feeds[0].kinds[0]", "lighting:26h", "shorter than 24h", "lighting:12h", 0},
+		// a kind's parameter written as a key beside it: the kind to write,
+		// in the file's format, not the list of the entry's keys
+		{"bad-lighting-target.yaml", "feeds[0].kinds[0].target", "target", "unknown key", "a lighting entry takes its day length in the kind: write kind: lighting:16h and leave target out", 2},
+		{"bad-altitude-key.toml", "feeds[0].kinds[0].altitude", "altitude", "unknown key", `a sun-altitude entry takes its altitude in the kind: write kind = "sun-altitude:-3.5" and leave altitude out`, 2},
 		{"lighting-offset.yaml", "feeds[0].kinds[0].offset", "30m", "has no meaning for lighting", "latest_off", 0},
 		{"bad-min-duration.yaml", "feeds[0].kinds[0].min_duration", "-5m", "must be within 0..24h", "", 0},
 		{"min-duration-wrong-kind.yaml", "feeds[0].kinds[0].min_duration", "30m", "has no meaning for sunrise", "dark-window", 0},
@@ -892,6 +896,9 @@ func TestLoadErrors(t *testing.T) {
 		"[[feeds.kinds]]\nweekdays = sat\n":      `line 2: weekdays = sat: text is written in quotes in TOML (write weekdays = ["sat"])`, // not "sat", which is no list
 		"[[feeds.kinds]]\noffset = -30m\n":       `line 2: offset = -30m: text is written in quotes in TOML (write offset = "-30m")`,
 		"[[feeds]]\nalarm = 1h30m\n":             `line 2: alarm = 1h30m: text is written in quotes in TOML (write alarm = "1h30m")`,
+		// a negative alarm says both slips at once, not the second once
+		// the first is mended
+		"[[feeds.plans]]\nalarm = -15m\n": `line 2: alarm = -15m: text is written in quotes in TOML, and an alarm must not be negative: it is the time before each event (write alarm = "15m")`,
 		// a clock time, which TOML reads as a time only with seconds: not
 		// its "times are expected to have the format HH:MM:SS[.NNNNNN]"
 		"[[feeds.plans]]\nstart = 20:00\n":             `line 2: start = 20:00: text is written in quotes in TOML (write start = "20:00")`,

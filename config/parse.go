@@ -190,6 +190,11 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 			written = yamlDocument(data)
 		}
 		for i := range problems {
+			if problems[i].Msg == "unknown key" {
+				if h := kindParamHint(settings, problems[i].Path, format); h != "" {
+					problems[i].Hint = h // target: 16h beside kind: lighting
+				}
+			}
 			if format == "toml" && problems[i].Msg == "unknown key" {
 				problems[i].Hint = tomlTableHint(settings, problems[i].Path, problems[i].Hint)
 			}
@@ -906,6 +911,11 @@ func tomlBareText(data []byte, row int) string {
 	}
 	if written == "true" || written == "false" {
 		return fmt.Sprintf("%s = %s: not a TOML value (write %s = %s)", key, value, key, written)
+	}
+	if after, neg := strings.CutPrefix(value, "-"); neg && strings.EqualFold(key, "alarm") && isBareDuration(value) {
+		// alarm = -15m: both slips in one message, not the second after
+		// the first is mended
+		return fmt.Sprintf("%s = %s: text is written in quotes in TOML, and an alarm must not be negative: it is the time before each event (write %s = %q)", key, value, key, after)
 	}
 	return fmt.Sprintf("%s = %s: text is written in quotes in TOML (write %s = %s)", key, value, key, written)
 }
@@ -1966,6 +1976,48 @@ func problemFor(path string, err error) []FieldError {
 	}
 	return []FieldError{{Path: shown, Msg: oneLine(msg)}}
 }
+
+// kindParamHint is the hint of an unknown key at path of a kinds entry
+// whose kind takes a parameter and is written without it, when the key's
+// value makes that kind whole: kind: lighting with target: 16h is
+// lighting:16h, written as format writes it; "" otherwise.
+func kindParamHint(settings map[string]any, path, format string) string {
+	entry, key, ok := cutLast(path)
+	if !ok || !kindsEntry().MatchString(entry) {
+		return ""
+	}
+	base := strings.ToLower(strings.TrimSpace(rawAt(settings, entry+".kind")))
+	what := map[string]string{KindLighting: "day length", KindPhotoperiod: "day length", KindSunAltitude: "altitude"}[base]
+	value := strings.TrimSpace(rawAt(settings, path))
+	if what == "" || value == "" {
+		return ""
+	}
+	k, err := ParseKind(base + ":" + value)
+	if err != nil {
+		return ""
+	}
+	written := "kind: " + k.String()
+	switch format {
+	case "toml":
+		written = fmt.Sprintf("kind = %q", k.String())
+	case "json":
+		written = fmt.Sprintf(`"kind": %q`, k.String())
+	}
+	return fmt.Sprintf("a %s entry takes its %s in the kind: write %s and leave %s out", base, what, written, key)
+}
+
+// cutLast splits a decoder path at its last key: "feeds[0].kinds[1]" and
+// "target" for "feeds[0].kinds[1].target".
+func cutLast(path string) (before, key string, ok bool) {
+	i := strings.LastIndexByte(path, '.')
+	if i < 0 {
+		return "", "", false
+	}
+	return path[:i], path[i+1:], true
+}
+
+// kindsEntry matches the path of a kinds entry, "feeds[0].kinds[2]".
+var kindsEntry = sync.OnceValue(func() *regexp.Regexp { return regexp.MustCompile(`^feeds\[\d+\]\.kinds\[\d+\]$`) })
 
 // tomlNumberAt is the number written at path in TOML data, as written
 // ("17.30", "1e3"), read from the line of its key (places); "" when that

@@ -408,7 +408,7 @@ func writeCheckText(g *globals, r *checkReport, zoneLines []string) error {
 	}
 	_, err := g.stdout.Write(w.Bytes())
 	for _, wmsg := range grouped(r.Warnings, r.oversizeAt, publish.OversizeWarnings(r.oversize, r.limit)) {
-		fmt.Fprintln(g.stderr, "warning: "+wmsg)
+		fmt.Fprintln(g.stderr, "heliocal: warning: "+wmsg)
 	}
 	return err
 }

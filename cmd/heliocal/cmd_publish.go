@@ -136,7 +136,7 @@ func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Tim
 		}
 		fmt.Fprintf(g.stderr, "heliocal: publishing %s from %s to %s\n", publishingWhat(srcs, shard), src, shown)
 		opts.Progress = publish.NewProgress(g.stderr)
-		opts.Progress.SummaryDir = shown
+		opts.Progress.SummaryDir, opts.Progress.Prefix = shown, "heliocal: "
 	}
 	st, err := publish.Publish(ctx, srcs, opts, w)
 	if err != nil {
@@ -144,11 +144,11 @@ func runPublish(ctx context.Context, g *globals, o *publishOptions, now time.Tim
 	}
 	if o.quiet { // else the summary has listed the oversize feeds
 		for _, w := range publish.Warnings(st) {
-			fmt.Fprintln(g.stderr, w)
+			fmt.Fprintln(g.stderr, "heliocal: "+w)
 		}
 	}
 	for _, w := range lamps.warnings() {
-		fmt.Fprintln(g.stderr, "warning: "+w.text) // as check writes them
+		fmt.Fprintln(g.stderr, "heliocal: warning: "+w.text) // as check writes them
 	}
 	return nil
 }

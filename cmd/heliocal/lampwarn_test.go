@@ -184,8 +184,8 @@ func TestPublishLampLimitWarning(t *testing.T) {
 			t.Fatalf("quiet %v: stderr:\n%s\nwant the %d warnings of check", quiet, errOut.String(), len(want))
 		}
 		for i := range want {
-			if lines[i] != "warning: "+want[i] {
-				t.Errorf("quiet %v: line\n%s\nwant\n%s", quiet, lines[i], "warning: "+want[i])
+			if lines[i] != "heliocal: warning: "+want[i] {
+				t.Errorf("quiet %v: line\n%s\nwant\n%s", quiet, lines[i], "heliocal: warning: "+want[i])
 			}
 		}
 		if out.Len() != 0 {

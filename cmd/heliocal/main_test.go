@@ -389,7 +389,7 @@ func TestPublishRefusesMixedShards(t *testing.T) {
 // feeds, as its summary does, out of all of them; one feed is "1 feed".
 func TestPublishStartLineCountsShard(t *testing.T) {
 	started := regexp.MustCompile(`(?m)^heliocal: publishing shard (\d)/2: (\d+) feeds? of (\d+) from built-in demo to `)
-	summary := regexp.MustCompile(`(?m)^published shard (\d)/2: (\d+) feeds? \(`)
+	summary := regexp.MustCompile(`(?m)^heliocal: published shard (\d)/2: (\d+) feeds? \(`)
 	total := 0
 	for _, shard := range []string{"0/2", "1/2"} {
 		code, _, errOut := runCLI(t, "publish", "--out", t.TempDir(), "--shard", shard)

@@ -101,7 +101,9 @@ func runWithInput(ctx context.Context, args []string, stdin io.Reader, stdout, s
 		err = inputError{unknownCommand(err)} // cobra's own error for an unknown command or a stray argument
 	}
 	if !errors.As(err, new(silentError)) {
-		fmt.Fprintln(stderr, "heliocal:", err)
+		// every line, as every other line heliocal writes to stderr:
+		// each problem of a configuration is a line of its own
+		fmt.Fprint(stderr, prefixLines(err.Error()))
 	}
 	return exitCode(err)
 }
@@ -291,4 +293,11 @@ func flagValueError(err error) error {
 		}
 	}
 	return fmt.Errorf("--%s: %q: %s", iv.GetFlag().Name, iv.GetValue(), what)
+}
+
+// prefixLines is text with "heliocal: " before each of its lines, and a
+// newline after the last: the form of every line heliocal writes to
+// stderr.
+func prefixLines(text string) string {
+	return "heliocal: " + strings.ReplaceAll(text, "\n", "\nheliocal: ") + "\n"
 }

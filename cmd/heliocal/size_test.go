@@ -56,8 +56,8 @@ func TestOversizeWarningOneForm(t *testing.T) {
 		if warning == "" || raw.MatchString(warning) || !sized.MatchString(warning) {
 			t.Errorf("%v: size warning %q (stderr %q), want sizes as \"41.2 kB\"", args, warning, errOut)
 		}
-		if w, ok := strings.CutPrefix(warning, "warning: "); !ok || !oversizeWords.MatchString(w) {
-			t.Errorf("%v: size warning %q, want \"warning: \" and %s", args, warning, oversizeWords)
+		if w, ok := strings.CutPrefix(warning, "heliocal: warning: "); !ok || !oversizeWords.MatchString(w) {
+			t.Errorf("%v: size warning %q, want \"heliocal: warning: \" and %s", args, warning, oversizeWords)
 		}
 	}
 }
@@ -100,7 +100,7 @@ func TestServeTrimNote(t *testing.T) {
 	}
 	cfg := writeConfig(t, yaml)
 	code, _, errOut := runCLI(t, "publish", "--config", cfg, "--out", filepath.Join(t.TempDir(), "public"))
-	if code != 0 || !strings.Contains(errOut, "\nnote: "+got[0]+"\n") {
+	if code != 0 || !strings.Contains(errOut, "\nheliocal: note: "+got[0]+"\n") {
 		t.Errorf("publish: exit %d, stderr %q; want the note %q", code, errOut, got[0])
 	}
 }

@@ -76,8 +76,8 @@ func TestOversizeWarningsGroupedCLI(t *testing.T) {
 	const n = 7
 	cfg := writeConfig(t, meadowFleet(n, "warn"))
 	out := filepath.Join(t.TempDir(), "public")
-	first := regexp.MustCompile(`^warning: feed "meadow-\d" is \d+(\.\d+)? kB, over service\.max_feed_bytes \(20 kB\): published as it is, but some web calendars drop events`)
-	prefix := "warning: 4 more feeds over service.max_feed_bytes (20 kB), published as they are: "
+	first := regexp.MustCompile(`^heliocal: warning: feed "meadow-\d" is \d+(\.\d+)? kB, over service\.max_feed_bytes \(20 kB\): published as it is, but some web calendars drop events`)
+	prefix := "heliocal: warning: 4 more feeds over service.max_feed_bytes (20 kB), published as they are: "
 	for _, args := range [][]string{
 		{"check", "--config", cfg},
 		{"publish", "--config", cfg, "--out", out},
@@ -95,7 +95,7 @@ func TestOversizeWarningsGroupedCLI(t *testing.T) {
 		t.Errorf("check --format json: %d warnings, want one per feed (%d): %q", len(r.Warnings), n, r.Warnings)
 	}
 	for i, w := range r.Warnings {
-		if !first.MatchString("warning: "+w) || !strings.Contains(w, fmt.Sprintf(`"meadow-%d"`, i)) {
+		if !first.MatchString("heliocal: warning: "+w) || !strings.Contains(w, fmt.Sprintf(`"meadow-%d"`, i)) {
 			t.Errorf("check --format json: warning %d = %q, want meadow-%d's own", i, w, i)
 		}
 	}
@@ -119,7 +119,16 @@ func TestTrimNotesGroupedCLI(t *testing.T) {
 	if code != 0 {
 		t.Fatalf("publish: exit %d: %s", code, errOut)
 	}
-	checkGrouped(t, "publish", linesWith(errOut, "shortened to"), n, first, prefix)
+	// on stderr, each line begins as every line heliocal writes there
+	var lines []string
+	for _, l := range linesWith(errOut, "shortened to") {
+		l, ok := strings.CutPrefix(l, "heliocal: ")
+		if !ok {
+			t.Errorf("publish: %q, want it to begin \"heliocal: \"", l)
+		}
+		lines = append(lines, l)
+	}
+	checkGrouped(t, "publish", lines, n, first, prefix)
 	var r struct{ Notes []string }
 	runJSON(t, &r, "check", "--config", cfg, "--format", "json")
 	if len(r.Notes) != n {

@@ -88,7 +88,7 @@ feeds:
 	}
 	lines := strings.Split(strings.TrimSpace(errOut), "\n")
 	if len(lines) != 1 ||
-		!strings.HasPrefix(lines[0], `warning: feed "kauri-weddings": sunset: 1900-01-01 is before the window's start `) ||
+		!strings.HasPrefix(lines[0], `heliocal: warning: feed "kauri-weddings": sunset: 1900-01-01 is before the window's start `) ||
 		!strings.HasSuffix(lines[0], "(days_back: 30): it will never be published") {
 		t.Errorf("stderr:\n%s", errOut)
 	}

@@ -23,6 +23,9 @@ type Progress struct {
 	// the same directory written as the user knows it, e.g. a relative one
 	// resolved.
 	SummaryDir string
+	// Prefix begins each line of the summary (the CLI's "heliocal: ", which
+	// begins every line it writes to stderr).
+	Prefix string
 
 	w   io.Writer
 	bar bool
@@ -115,7 +118,11 @@ func (p *Progress) Finish(st Stats, dir string) {
 	if p.SummaryDir != "" {
 		dir = p.SummaryDir
 	}
-	fmt.Fprint(p.w, Summary(st, dir))
+	s := Summary(st, dir)
+	if p.Prefix != "" {
+		s = p.Prefix + strings.ReplaceAll(strings.TrimSuffix(s, "\n"), "\n", "\n"+p.Prefix) + "\n"
+	}
+	fmt.Fprint(p.w, s)
 }
 
 // Summary is the end-of-run report, one line plus a line per warning, e.g.

@@ -50,6 +50,33 @@ func dayTexts(sel string) string {
 	return `[...document.querySelectorAll("` + sel + `")].map(tr => tr.querySelector(".date").textContent + ": " + [...tr.querySelectorAll("li")].map(li => li.textContent).join(" | "))`
 }
 
+// tableRows opens the day-by-day table at url and reads its rows
+// (dayTexts).
+func tableRows(t *testing.T, ctx context.Context, url string) []string {
+	t.Helper()
+	if err := chromedp.Do(ctx, chromedp.Navigate(url), chromedp.WaitVisible(chromedp.CSS("table.days"))); err != nil {
+		t.Fatal(err)
+	}
+	rows, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](dayTexts("table.days tbody tr")))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return rows
+}
+
+// makeAnother follows the table's "make another" to the builder and waits
+// for the preview it shows as it loads.
+func makeAnother(t *testing.T, ctx context.Context) {
+	t.Helper()
+	if err := chromedp.Do(ctx,
+		chromedp.Click(chromedp.Search(`//a[text()="make another"]`)),
+		chromedp.WaitVisible(chromedp.ID("lat")),
+		chromedp.Poll[chromedp.Void](`document.getElementById("result").classList.contains("ready") && document.querySelector("#preview th") !== null`),
+	); err != nil {
+		t.Fatalf("make another: %v", err)
+	}
+}
+
 // The table page's "make another" opens the builder filled with the
 // table's query, for a place in the southern hemisphere (Hobart, Tasmania,
 // in its winter): the place, its name, elevation and horizon, the kinds
@@ -62,24 +89,12 @@ func TestBrowserMakeAnother(t *testing.T) {
 	ctx := browser(t)
 	table := ts.URL + "/at?lat=-42.8821&lon=147.3272&elev=40&name=Battery+Point&horizon=1.5" +
 		"&kinds=civil-dawn,sunrise,sunset,moonrise,lighting:14h&offsets=sunset:-20m,moonrise:10m&alarm=15m&start=2027-06-21"
-	if err := chromedp.Do(ctx, chromedp.Navigate(table), chromedp.WaitVisible(chromedp.CSS("table.days"))); err != nil {
-		t.Fatal(err)
-	}
-	rows, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](dayTexts("table.days tbody tr")))
-	if err != nil {
-		t.Fatal(err)
-	}
+	rows := tableRows(t, ctx, table)
 	links, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](`[document.querySelector("a.button").href.replace(/^webcal:/, "http:"), document.querySelector("p.noprint a.url").href]`))
 	if err != nil {
 		t.Fatal(err)
 	}
-	if err := chromedp.Do(ctx,
-		chromedp.Click(chromedp.Search(`//a[text()="make another"]`)),
-		chromedp.WaitVisible(chromedp.ID("lat")),
-		chromedp.Poll[chromedp.Void](`document.getElementById("result").classList.contains("ready") && document.querySelector("#preview th") !== null`),
-	); err != nil {
-		t.Fatalf("make another: %v", err)
-	}
+	makeAnother(t, ctx)
 	f := readForm(t, ctx)
 	wantFields := []string{"lat=-42.8821", "lon=147.3272", "elev=40", "name=Battery Point", "horizon=1.5", "tz=", "lighting=14", "alarm=15", "start=2027-06-21"}
 	if !slices.Equal(f.Fields, wantFields) {
@@ -163,5 +178,49 @@ func TestBrowserBuilderLinkBadValues(t *testing.T) {
 	}
 	if len(problems) > 0 {
 		t.Errorf("at 390 px: %s", strings.Join(problems, "; "))
+	}
+}
+
+// "make another" from a table of 31 days keeps its length: the builder
+// previews the first seven of its days, and its share link, named "of 31
+// days", opens a table of 31 days again, the table's own link, and keeps
+// that length when a kind is changed; the table's 31 rows begin with the
+// builder's seven (Lisbon in December).
+func TestBrowserMakeAnotherKeepsDays(t *testing.T) {
+	ts := builderServer(t)
+	ctx := browser(t)
+	table := ts.URL + "/at?lat=38.7223&lon=-9.1393&kinds=sunrise,sunset&start=2027-12-01&days=31"
+	rows := tableRows(t, ctx, table)
+	share, err := chromedp.Run(ctx, chromedp.Evaluate[string](`document.querySelector("p.noprint a.url").href`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(rows) != 31 || !strings.Contains(share, "days=31") {
+		t.Fatalf("the table has %d rows and the share link %q, want 31 days", len(rows), share)
+	}
+	makeAnother(t, ctx)
+	preview, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](dayTexts("#preview tr")))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !slices.Equal(preview, rows[:7]) {
+		t.Errorf("the builder's preview %q, want the table's first seven rows %q", preview, rows[:7])
+	}
+	got, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](`[document.getElementById("page").href, document.getElementById("page").textContent, document.getElementById("days-h").textContent]`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if want := []string{share, "Printable table of 31 days and shareable link", "Seven days from Wed 2027-12-01"}; !slices.Equal(got, want) {
+		t.Errorf("the builder's share link, its words and the preview's heading %q, want %q", got, want)
+	}
+	// sunset unticked: a new preview, the share link still of 31 days
+	if err := chromedp.Do(ctx,
+		chromedp.Click(chromedp.ID("k-sunset")),
+		chromedp.Poll[chromedp.Void](`!document.getElementById("page").href.includes("sunset")`),
+	); err != nil {
+		t.Fatalf("untick sunset: %v", err)
+	}
+	if page, err := chromedp.Run(ctx, chromedp.Evaluate[string](`document.getElementById("page").href`)); err != nil || !strings.HasSuffix(page, "&start=2027-12-01&days=31") {
+		t.Errorf("after sunset unticked, the share link %q (%v), want the table of 31 days from 2027-12-01", page, err)
 	}
 }

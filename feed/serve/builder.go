@@ -469,8 +469,13 @@ func (s *Server) links(r *http.Request, q AdhocQuery, start string, days, pageDa
 	return https, page
 }
 
+// servePreview answers /at.json: the first days of the table its query
+// asks for (days, 1..maxTable, previewDays by default), previewDays of
+// them at most, and the links, the share link to the table of every day
+// asked for: a table's "make another" keeps the table's length through the
+// builder.
 func (s *Server) servePreview(w http.ResponseWriter, r *http.Request) {
-	q, cal, start, ok := s.previewCalendar(w, r, previewDays, plain, "the preview")
+	q, cal, start, asked, ok := s.previewCalendar(w, r, maxTable, previewDays, plain, "the preview")
 	if !ok {
 		return
 	}
@@ -478,7 +483,7 @@ func (s *Server) servePreview(w http.ResponseWriter, r *http.Request) {
 	if !ok {
 		return
 	}
-	https, page := s.links(r, q, start, subDays, previewDays)
+	https, page := s.links(r, q, start, subDays, asked)
 	res := previewResult{SubscribeDays: subDays, SubscribeNote: subscribeNote(subDays), Zone: q.Location.String(), ZoneFound: q.ZoneFound, Name: cal.Site.Name, Title: cal.Title,
 		HTTPS: https, Webcal: webcal(https), Page: page, QR: qrDataURL(page), Days: days(cal, q)}
 	body, err := json.Marshal(res)
@@ -570,24 +575,26 @@ func (s *Server) lampNotesAsFed(ctx context.Context, q AdhocQuery, feedDays int,
 }
 
 // previewCalendar reads a preview or table query of at most maxDays days and
-// computes its calendar; start is the query's own start date ("" when it
-// gave none). It answers the request itself and reports false when the query
-// is bad or the computation fails (computeFailed, for the page that computes
-// what).
-func (s *Server) previewCalendar(w http.ResponseWriter, r *http.Request, maxDays int, fail failFunc, what string) (q AdhocQuery, cal *feed.Calendar, start string, ok bool) {
+// computes its calendar of the first shown of them at most (q.Days; asked
+// is the days the query asks for); start is the query's own start date (""
+// when it gave none). It answers the request itself and reports false when the
+// query is bad or the computation fails (computeFailed, for the page that
+// computes what).
+func (s *Server) previewCalendar(w http.ResponseWriter, r *http.Request, maxDays, shown int, fail failFunc, what string) (q AdhocQuery, cal *feed.Calendar, start string, asked int, ok bool) {
 	q, hasStart, err := s.previewQuery(r, previewDays, maxDays)
 	if err != nil {
 		fail(w, http.StatusBadRequest, err.Error())
-		return q, nil, "", false
+		return q, nil, "", 0, false
 	}
+	asked, q.Days = q.Days, min(q.Days, shown)
 	cal, err = s.compute(r.Context(), q)
 	if s.computeFailed(w, q, err, fail, what) {
-		return q, nil, "", false
+		return q, nil, "", 0, false
 	}
 	if hasStart {
 		start = q.Start.Format(time.DateOnly)
 	}
-	return q, cal, start, true
+	return q, cal, start, asked, true
 }
 
 // failFunc answers a refused or failed request with its status and message:
@@ -833,7 +840,7 @@ type tableView struct {
 
 func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
 	fail := s.tableFailed(r)
-	q, cal, start, ok := s.previewCalendar(w, r, maxTable, fail, "the table")
+	q, cal, start, _, ok := s.previewCalendar(w, r, maxTable, maxTable, fail, "the table")
 	if !ok {
 		return
 	}

@@ -69,7 +69,18 @@ func TestPreviewJSON(t *testing.T) {
 	if err != nil || !strings.HasPrefix(string(svg), "<svg") {
 		t.Errorf("QR %.60q: not an SVG data URL (%v)", res.QR, err)
 	}
-	for _, bad := range []string{"days=8", "lat=95", "horizon=50"} {
+	// days is the table the share link opens, as long as a table may be:
+	// the preview is of its first seven days (a table's "make another"
+	// keeps its length through the builder)
+	var long previewResult
+	if err := json.Unmarshal([]byte(body(t, get(t, s.Handler(), "GET", "/at.json?lat=-33.45&lon=-70.6667&kinds=sunrise&start=2026-06-21&days=31"))), &long); err != nil {
+		t.Fatal(err)
+	}
+	if len(long.Days) != 7 || long.Days[0].Date != "2026-06-21" || !strings.HasSuffix(long.Page, "&start=2026-06-21&days=31") || strings.Contains(long.HTTPS, "days=") {
+		t.Errorf("days=31: %d days from %s, page link %q, subscribe %q; want 7 days, the page of 31 and the rolling subscription of every day",
+			len(long.Days), long.Days[0].Date, long.Page, long.HTTPS)
+	}
+	for _, bad := range []string{"days=63", "days=0", "lat=95", "horizon=50"} {
 		r := get(t, s.Handler(), "GET", "/at.json?lat=1&lon=2&kinds=sunrise&"+bad)
 		if m := body(t, r); r.StatusCode != 400 || strings.Count(m, "\n") != 1 {
 			t.Errorf("%s: %d %q, want a one-line 400", bad, r.StatusCode, m)

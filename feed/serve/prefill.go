@@ -22,6 +22,9 @@ type builderFill struct {
 	Alarm                               string // minutes
 	Lighting                            string // hours, e.g. "14.5"
 	Start                               string // YYYY-MM-DD: the server's today unless StartChosen
+	// Days is the length of the table the builder's share link opens, ""
+	// for the preview's seven days: a table's "make another" keeps its own
+	Days string
 	// StartChosen marks a start the query gave: the preview asks for it
 	// even when it is the server's today (builder.js, query).
 	StartChosen bool
@@ -31,7 +34,7 @@ type builderFill struct {
 // builderParams are the ad-hoc parameters the builder has a field for, in
 // the order its notes name them.
 var builderParams = []string{ParamLatitude, ParamLongitude, ParamElevation, ParamZone, ParamName, ParamHorizon,
-	ParamKinds, ParamLighting, ParamOffsets, ParamAlarm, ParamStart}
+	ParamKinds, ParamLighting, ParamOffsets, ParamAlarm, ParamStart, ParamDays}
 
 // builderFill reads the query raw of the builder's page (see builderFill),
 // today being the server's date; groups are the page's kinds, ticked and
@@ -106,6 +109,16 @@ func (s *Server) builderFill(raw, today string) (builderFill, []kindGroup) {
 		q.Location = time.UTC // read only without a start
 		err := q.parseWindow(get, time.Time{}, &r.lim)
 		f.Start, f.StartChosen = q.Start.Format(time.DateOnly), true
+		return err
+	})
+	r.read(ParamDays, func(get getter) error {
+		lim := r.lim
+		lim.maxDays = maxTable // a table's length, as the table takes it
+		q.Location = time.UTC  // read only without a start
+		err := q.parseWindow(get, s.now(), &lim)
+		if err == nil && q.Days != previewDays {
+			f.Days = strconv.Itoa(q.Days)
+		}
 		return err
 	})
 	r.read(ParamUTC, func(get getter) error {
@@ -305,9 +318,10 @@ func fillGroups(ticked map[string]bool, shifts map[string]string) []kindGroup {
 // with q (builderFill reads it back): the place, the zone when it was given
 // (not found from the coordinates), the kinds with the lighting target,
 // the shifts, the reminder and start, the query's own start date ("" when
-// it gave none). The window's length and utc=false, which the builder has
-// no field for, are left out; utc=true is kept, for the builder to say
-// that it leaves it out.
+// it gave none), the table's length when it is not the preview's (the
+// builder's share link keeps it). utc=false, which the builder has no
+// field for, is left out; utc=true is kept, for the builder to say that it
+// leaves it out.
 func (q AdhocQuery) builderQuery(start string) string {
 	v := url.Values{}
 	v.Set(ParamLatitude, strconv.FormatFloat(q.Latitude, 'f', -1, 64))
@@ -336,6 +350,9 @@ func (q AdhocQuery) builderQuery(start string) string {
 	}
 	if start != "" {
 		v.Set(ParamStart, start)
+	}
+	if q.Days != previewDays {
+		v.Set(ParamDays, strconv.Itoa(q.Days))
 	}
 	if q.UTC {
 		v.Set(ParamUTC, "true")

@@ -63,14 +63,15 @@ func fillNotes(page string) []string {
 }
 
 var formIDs = []string{"lat", "lon", "elev", "name", "horizon", "tz", "k-civil-dawn", "k-sunrise", "k-sunset", "k-golden-hour",
-	"off-sunrise", "off-sunset", "lighting", "alarm", "start"}
+	"off-sunrise", "off-sunset", "lighting", "alarm", "start", "days"}
 
 // The table's "make another" link opens the builder with the table's own
 // query: every parameter the builder has a field for, in its field, the
 // kinds ticked and shifted, the lighting target in hours, the reminder in
 // minutes and the table's first date; the zone only when the table was
 // given one (else the builder finds it from the coordinates, as the table
-// did), and not the table's length, which the builder has no field for.
+// did), and the table's length when it is not the preview's seven days,
+// which the builder's share link keeps.
 func TestMakeAnotherFillsBuilder(t *testing.T) {
 	h := builderTestServer(t).Handler()
 	for _, tc := range []struct {
@@ -81,7 +82,7 @@ func TestMakeAnotherFillsBuilder(t *testing.T) {
 			"&offsets=sunset:-30m&alarm=1h30m&start=2026-06-21&days=14",
 			map[string]string{"lat": "-33.45", "lon": "-70.6667", "elev": "520", "name": "Quebrada vineyard", "horizon": "0:2,60:12", "tz": "",
 				"k-civil-dawn": "off", "k-sunrise": "on", "k-sunset": "on", "k-golden-hour": "on", "off-sunrise": "0", "off-sunset": "-30",
-				"lighting": "14.5", "alarm": "90", "start": "2026-06-21 (chosen)"}},
+				"lighting": "14.5", "alarm": "90", "start": "2026-06-21 (chosen)", "days": "14"}},
 		// without a start, the builder's date is the server's today (2026-12-02)
 		{"zone given, no start", "lat=47.8&lon=13.05&tz=Europe/Vienna&horizon=2.5&kinds=sunrise",
 			map[string]string{"lat": "47.8", "lon": "13.05", "elev": "0", "name": "", "horizon": "2.5", "tz": "Europe/Vienna",
@@ -105,8 +106,8 @@ func TestMakeAnotherFillsBuilder(t *testing.T) {
 			if !ok {
 				t.Fatalf("\"make another\" leads to %q, want ./? and the query", link)
 			}
-			if v, _ := url.ParseQuery(q); v.Has(ParamDays) || v.Has(ParamUTC) {
-				t.Errorf("\"make another\" %q carries days or utc, which the builder has no field for", link)
+			if v, _ := url.ParseQuery(q); v.Get(ParamDays) != tc.want["days"] || v.Has(ParamUTC) {
+				t.Errorf("\"make another\" %q: days %q, want %q; utc, which the builder has no field for, left out", link, v.Get(ParamDays), tc.want["days"])
 			}
 			page := body(t, get(t, h, "GET", "/?"+q))
 			got := formState(t, page, formIDs...)
@@ -130,7 +131,7 @@ func TestBuilderFillIgnoresBadValues(t *testing.T) {
 	h := builderTestServer(t).Handler()
 	// Wellington, New Zealand: its zone misspelt
 	page := body(t, get(t, h, "GET", "/?lat=-41.2865&lon=174.7762&tz=Pacific/Aukland&elev=high&kinds=sunrise,sunrize,sun-altitude:10,lighting:16h,lighting:12h"+
-		"&offsets=golden-hour:10m,sunrise:-15m&days=31&utc=true&colour=red&name=Te+Aro&name=Kelburn"))
+		"&offsets=golden-hour:10m,sunrise:-15m&days=90&utc=true&colour=red&name=Te+Aro&name=Kelburn"))
 	got := formState(t, page, formIDs...)
 	want := map[string]string{"lat": "-41.2865", "lon": "174.7762", "elev": "0", "name": "", "horizon": "", "tz": "",
 		"k-civil-dawn": "off", "k-sunrise": "on", "k-sunset": "off", "k-golden-hour": "off", "off-sunrise": "-15", "off-sunset": "0",
@@ -151,13 +152,14 @@ func TestBuilderFillIgnoresBadValues(t *testing.T) {
 		`parameter kinds="lighting:12h": the builder takes one lighting target, lighting:16h`,
 		`parameter offsets="golden-hour:10m": the kind golden-hour is not among the kinds asked for`,
 		`parameter utc="true": the builder's calendars give local times`,
+		`parameter days="90": must be within 1..62`, // a table's days at most
 	} {
 		if !slices.ContainsFunc(notes, func(n string) bool { return strings.HasPrefix(n, w) }) {
 			t.Errorf("the note lacks %q: %q", w, notes)
 		}
 	}
-	if len(notes) != 9 {
-		t.Errorf("%d notes, want 9: %q", len(notes), notes)
+	if len(notes) != 10 {
+		t.Errorf("%d notes, want 10: %q", len(notes), notes)
 	}
 	// the misspelt zone's note suggests the zone meant
 	if !slices.ContainsFunc(notes, func(n string) bool { return strings.Contains(n, "Pacific/Auckland") }) {

@@ -62,6 +62,9 @@ function query(withStart) {
   // date the page's link gave (data-chosen) is chosen
   const start = $("start");
   if (withStart && start.value && (start.value !== start.defaultValue || "chosen" in start.dataset)) p.set("start", start.value);
+  // the length of the table the share link opens, when the page's link
+  // gave one (a table's "make another"): the preview is of seven days
+  if ($("days").value) p.set("days", $("days").value);
   return { params: p };
 }
 
@@ -117,7 +120,9 @@ function render(res) {
   $("zone-note").textContent = "(times in " + res.zone + ")";
   // the days are those from the date chosen ("Preview from"), the next
   // ones or not
-  if (res.days.length) $("days-h").textContent = "Seven days from " + res.days[0].weekday + " " + res.days[0].date;
+  // (fewer for a link's table of fewer days)
+  const n = res.days.length;
+  if (n) $("days-h").textContent = (n === 7 ? "Seven days" : n === 1 ? "1 day" : n + " days") + " from " + res.days[0].weekday + " " + res.days[0].date;
   // a date not chosen shows the first day previewed: today at the place
   const start = $("start");
   if (res.days.length && start.value === start.defaultValue) start.defaultValue = start.value = res.days[0].date;

@@ -4,6 +4,7 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"io/fs"
 	"os"
 	"path/filepath"
 	"time"
@@ -123,12 +124,18 @@ type liveLock struct {
 
 // holdLive takes the shared lock on w.Dir's LiveName, waiting (until ctx
 // ends) while a run holds it exclusively, which it does only while it looks
-// for leftovers or removes the file.
+// for leftovers or removes the file. In a directory where this user may
+// create no file, where LiveName is not, it holds nothing (nil, no error):
+// the run can write no temporary file there either, and a republish that
+// finds every file unchanged still succeeds, as it did before LiveName.
 func (w *Writer) holdLive(ctx context.Context) (*liveLock, error) {
 	path := filepath.Join(w.Dir, LiveName)
 	for {
 		f, err := openLock(path)
 		if err != nil {
+			if _, serr := os.Lstat(path); errors.Is(err, fs.ErrPermission) && errors.Is(serr, fs.ErrNotExist) {
+				return nil, nil
+			}
 			return nil, err
 		}
 		if err := w.pollLock(ctx, f, tryLockShared, func() error { return nil }); err != nil {

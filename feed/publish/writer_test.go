@@ -722,3 +722,27 @@ func removeTemp(t *testing.T, dir, name string) {
 		t.Fatal(err)
 	}
 }
+
+// A republish that finds every file unchanged, into a directory this user
+// may no longer write to, succeeds and writes nothing, as it did before
+// the live lock: LiveName cannot be created there, and neither can any
+// temporary file. The superuser writes into any directory: the test needs
+// another user.
+func TestRepublishUnchangedIntoUnwritableDir(t *testing.T) {
+	if os.Geteuid() == 0 {
+		t.Skip("run as root, who may write into any directory")
+	}
+	dir := t.TempDir()
+	publishTo(t, dir, "", testOptions())
+	if err := os.Chmod(dir, 0o555); err != nil {
+		t.Fatal(err)
+	}
+	t.Cleanup(func() { os.Chmod(dir, 0o755) })
+	st := publishTo(t, dir, "", testOptions())
+	if st.FilesWritten != 0 || st.FilesUnchanged == 0 {
+		t.Errorf("republish: %d files written, %d unchanged; want none written", st.FilesWritten, st.FilesUnchanged)
+	}
+	if _, err := os.Stat(filepath.Join(dir, LiveName)); !errors.Is(err, fs.ErrNotExist) {
+		t.Errorf("%s: %v, want none", LiveName, err)
+	}
+}

@@ -777,3 +777,15 @@ func TestChartCaptionSaysFeedDates(t *testing.T) {
 		}
 	}
 }
+
+// A shard manifest written before manifests recorded the sites' conditions
+// takes them from the configuration's site of its id, a level horizon
+// written 0 too: the merged index's place line says "horizon 0°", as a
+// whole run's does (feed.Site.Conditions).
+func TestConditionsOfOldManifestKeepLevelHorizon(t *testing.T) {
+	level := feed.Site{ID: "plateau", Elevation: 1150, HorizonSet: true}
+	got := conditionsOf(feed.Site{ID: "plateau", Elevation: 1150}, []feed.Site{level})
+	if c, want := got.Conditions(), level.Conditions(); c != want || want != "horizon 0°" {
+		t.Errorf("conditions %q, want %q (horizon 0°)", c, want)
+	}
+}

@@ -455,7 +455,7 @@ func conditionsOf(site feed.Site, sites []feed.Site) feed.Site {
 		return site
 	}
 	c := sites[i]
-	site.Horizon, site.Skyline, site.Pressure, site.Temperature = c.Horizon, c.Skyline, c.Pressure, c.Temperature
+	site.Horizon, site.HorizonSet, site.Skyline, site.Pressure, site.Temperature = c.Horizon, c.HorizonSet, c.Skyline, c.Pressure, c.Temperature
 	return site
 }
 

@@ -9,6 +9,7 @@ import (
 	"path/filepath"
 	"strings"
 	"sync"
+	"sync/atomic"
 	"testing"
 	"time"
 )
@@ -255,5 +256,59 @@ func TestMixedConfigurationsRefused(t *testing.T) {
 	}
 	if bad, n := listedMismatches(t, dir); len(bad) > 0 || n != 3 {
 		t.Errorf("feeds.json lists %d feeds; mismatches %v", n, bad)
+	}
+}
+
+// Runs start, look for a killed run's leftovers and end at once in one
+// directory: a run finds itself alone (liveLock.alone, under the
+// directory's lock) only while no other run holds its live lock, whatever
+// the moments at which a run ending removes LiveName and another starting
+// opens it. A run is counted alive from its holdLive to its look, after
+// which it writes only under the directory's lock.
+func TestLiveLockAloneOnlyWhenAlone(t *testing.T) {
+	dir := t.TempDir()
+	var (
+		alive, alone atomic.Int32
+		dirLock      sync.Mutex // the directory's lock (lockDir) that alone's caller holds
+		wg           sync.WaitGroup
+	)
+	for range 4 {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			w := &Writer{Dir: dir} // a file description of its own, as another process has
+			for range 200 {
+				l, err := w.holdLive(context.Background())
+				if err != nil {
+					t.Error(err)
+					return
+				}
+				alive.Add(1)
+				dirLock.Lock()
+				if l.alone(func() {
+					if n := alive.Load(); n != 1 {
+						t.Errorf("a run found itself alone beside %d other runs alive", n-1)
+					}
+				}) {
+					alone.Add(1)
+				}
+				alive.Add(-1)
+				dirLock.Unlock()
+				l.release()
+			}
+		}()
+	}
+	wg.Wait()
+	l, err := (&Writer{Dir: dir}).holdLive(context.Background())
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !l.alone(func() {}) {
+		t.Error("a run after all the others ended does not find itself alone")
+	}
+	l.release()
+	t.Logf("%d of 800 looks found their run alone", alone.Load())
+	if _, err := os.Stat(filepath.Join(dir, LiveName)); !errors.Is(err, os.ErrNotExist) {
+		t.Errorf("the last run out left %s (%v)", LiveName, err)
 	}
 }

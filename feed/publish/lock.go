@@ -192,12 +192,12 @@ func (l *liveLock) alone(fn func()) bool {
 	return ok
 }
 
-// release gives the lock back; the last run out removes the file (nil:
-// nothing to give back).
+// release gives the lock back; the last run out removes the file
+// (removeLive; nil: nothing to give back).
 func (l *liveLock) release() {
 	if l == nil {
 		return
 	}
-	l.exclusive(func() { os.Remove(l.path) })
+	l.exclusive(func() { removeLive(l.f, l.path) })
 	l.f.Close()
 }

@@ -1317,25 +1317,38 @@ func (sky *Sky) moonPhases() ([]astro.Phase, error) {
 // taken as that long after the last instant before the change, as clocks
 // that are set forward show it (00:30 on a night that jumps from 00:00 to
 // 01:00 is 01:30); Go's time.Date may instead give the previous evening.
-// A clock time the clocks show twice, when they go back, is the first of
-// the two, the earlier instant (RFC 5545 §3.3.5: "the first occurrence");
-// Go's time.Date gives either, by zone.
+// That instant is on the next date when the skipped hour runs into
+// midnight (23:10 in America/Nuuk on Saturday 27 March 2027, whose clocks
+// go from 23:00 to 00:00 on Sunday, is 00:10 on Sunday). A clock time the
+// clocks show twice, when they go back, is the first of the two, the
+// earlier instant (RFC 5545 §3.3.5: "the first occurrence"); Go's
+// time.Date gives either, by zone.
 func clockOn(d time.Time, clock time.Duration, loc *time.Location) time.Time {
 	h, m := int(clock/time.Hour), int(clock%time.Hour/time.Minute)
 	t := time.Date(d.Year(), d.Month(), d.Day(), h, m, 0, 0, loc)
 	if lt := t.In(loc); lt.Hour() == h && lt.Minute() == m && lt.Day() == d.Day() {
 		return firstReading(t)
 	}
+	// The clocks skip the reading: it is wall less the offset before the
+	// change, an instant after the change (its offset is larger) whose
+	// reading with the offset after the change, wall less that offset, is
+	// before it (still on the offset before), whatever its date. On a date
+	// the clocks skip whole the probes may all be after the change: t, as
+	// Go gives it, is then moved by the jump (12:00 on Friday 30 December
+	// 2011 in Pacific/Apia is 12:00 on Saturday).
 	wall := time.Date(d.Year(), d.Month(), d.Day(), h, m, 0, 0, time.UTC)
-	best := t
 	for _, probe := range []time.Time{t.Add(-6 * time.Hour), t, t.Add(6 * time.Hour)} {
-		_, off := probe.In(loc).Zone()
-		u := wall.Add(-time.Duration(off) * time.Second)
-		if localDate(u, loc).Equal(civil(d)) && (!localDate(best, loc).Equal(civil(d)) || u.After(best)) {
-			best = u
+		_, before := probe.In(loc).Zone()
+		u := wall.Add(-time.Duration(before) * time.Second)
+		_, after := u.In(loc).Zone()
+		if after <= before {
+			continue
+		}
+		if _, o := wall.Add(-time.Duration(after) * time.Second).In(loc).Zone(); o == before {
+			return u
 		}
 	}
-	return best
+	return t
 }
 
 // firstReading is the first instant at which the local clock reads what it

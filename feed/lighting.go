@@ -1081,16 +1081,14 @@ func sentenceHM(b []byte, d time.Duration) []byte {
 // later. The words are a plan's (skippedClock) without their brackets:
 // "moved from 00:30, which the clocks skip on Sun 28 Mar 2027: the clocks
 // go forward for summer time by 1 h". It is "" when t is not the limit's
-// instant on its date.
+// instant on the date the clocks skip it on, which is the date before t's
+// when the skipped hour runs into midnight.
 func movedLimit(z *zoneCache, t time.Time, clock time.Duration) string {
-	if !clockOn(z.date(t), clock, z.loc).Equal(t) {
+	m, ok := movedClock(config.TimeSpec{IsClock: true, Clock: clock}, t, z)
+	if !ok || !clockOn(m.day(), clock, z.loc).Equal(t) {
 		return ""
 	}
-	m := skippedClock(config.TimeSpec{IsClock: true, Clock: clock}, t, z)
-	if len(m) < 3 {
-		return ""
-	}
-	return m[2 : len(m)-1] // " (moved from …)"
+	return m.words(true)
 }
 
 // partLimit is the limit that clips a period of lamps of the part (clip:

@@ -1113,16 +1113,31 @@ func movedClock(ts config.TimeSpec, t time.Time, z *zoneCache) (clockMove, bool)
 	return clockMove{written: ts.Clock, by: (shown - ts.Clock + 24*time.Hour) % (24 * time.Hour), t: t.In(z.loc)}, true
 }
 
+// day is the local date the clocks skip the clock time as written on, as
+// 00:00 UTC: the date of the clock shown at the instant less the move. It
+// is the date before the instant's when the skipped hour runs into
+// midnight (23:10 in America/Nuuk on Saturday 27 March 2027, shown as
+// 00:10 on Sunday).
+func (m clockMove) day() time.Time {
+	_, off := m.t.Zone()
+	wall := m.t.Unix() + int64(off) - int64(m.by/time.Second)
+	return time.Unix(floorDiv(wall, secondsPerDay)*secondsPerDay, 0).UTC()
+}
+
 // words says why the time moved, "moved from 00:30, which the clocks skip
 // on Sun 28 Mar 2027: the clocks go forward for summer time by 1 h", or,
 // when its date is said beside it (not dated), "moved from 00:30, which the
-// clocks skip: they go forward for summer time by 1 h".
+// clocks skip: they go forward for summer time by 1 h". The date the
+// clocks skip it on is said beside it too when that is not the date shown
+// at the instant: "moved from 23:30, which the clocks skip on Sat 27 Mar
+// 2027" beside Sun 28 Mar.
 func (m clockMove) words(dated bool) string {
 	change := ClocksGo(true, m.t.IsDST(), m.by)
-	if !dated {
+	day := m.day()
+	if y, mo, d := m.t.Date(); !dated && day.Equal(time.Date(y, mo, d, 0, 0, 0, 0, time.UTC)) {
 		return "moved from " + clockText(m.written) + ", which the clocks skip: they " + change
 	}
-	return "moved from " + clockText(m.written) + ", which the clocks skip on " + m.t.Format("Mon 2 Jan 2006") + ": the clocks " + change
+	return "moved from " + clockText(m.written) + ", which the clocks skip on " + day.Format("Mon 2 Jan 2006") + ": the clocks " + change
 }
 
 // ClocksGo says how the clocks change, by how much: "go forward for summer
@@ -1167,7 +1182,7 @@ func bothMovedWords(start, end clockMove) string {
 	if sk := start.skipped(); sk != "" {
 		b += sk + " "
 	}
-	b += "on " + start.t.Format("Mon 2 Jan 2006")
+	b += "on " + start.day().Format("Mon 2 Jan 2006")
 	if start.t.IsDST() {
 		b += " for summer time"
 	}

@@ -1027,8 +1027,12 @@ func (w *entryWriter) planTime(ts config.TimeSpec, d time.Time, times map[config
 // time on d when it is later than the start (a clock start compared as
 // written, so that one the clocks skip, moved, does not put the end on the
 // next day); otherwise on the next date when it is before 12:00 (an end
-// past midnight, "01:00"). An end at or after 12:00 that the start has
-// passed leaves the plan no time that date: false.
+// past midnight, "01:00"), false when an event start is past it too. An
+// end at or after 12:00 that the start has passed leaves the plan no time
+// that date: false. A clock start that the clocks skip, moved past such an
+// end (23:30 in America/Nuuk on Saturday 27 March 2027, whose clocks go
+// from 23:00 to 00:00, is 00:30 on Sunday, past an end "00:15"), keeps it:
+// the caller finds no time between them and says that the start moved.
 func (w *entryWriter) clockEnd(ts, from config.TimeSpec, d, start time.Time) (time.Time, bool) {
 	day := floorDiv(d.Unix(), secondsPerDay)
 	end := w.clockOn.clockOnDay(day, ts.Clock)
@@ -1039,7 +1043,7 @@ func (w *entryWriter) clockEnd(ts, from config.TimeSpec, d, start time.Time) (ti
 		return time.Time{}, false
 	}
 	end = w.clockOn.clockOnDay(day+1, ts.Clock)
-	return end, end.After(start)
+	return end, from.IsClock || end.After(start)
 }
 
 // planEnd is the end of a plan that starts at start on the local date d

@@ -203,6 +203,10 @@ func TestPlanSkippedIntoMidnight(t *testing.T) {
 		{"start and end", config.Plan{Start: "23:10", End: "23:40"}, "2027-03-28T01:10:00Z", "2027-03-28T01:40:00Z", "Night check",
 			"From 00:10:00 UTC−01 the next day (Sun 28 Mar) to 00:40:00 UTC−01 (both moved by 1 h from 23:10 and 23:40: the clocks skip 23:00–00:00 on Sat 27 Mar 2027 for summer time).",
 			"From 23:10:00 UTC−0%d to 23:40:00 UTC−0%d."},
+		// the start moved past an end the next day: no time, and why
+		{"start moved past the end", config.Plan{Start: "23:30", End: "00:15"}, "", "", "Night check: no time today",
+			"No time today: the start, 23:30, is at 00:30:00 UTC−01 (moved from 23:30, " + skip + "), not before the end, 00:15, on Saturday 27 March 2027.",
+			"From 23:30:00 UTC−0%d to 00:15:00 UTC−0%d the next day"},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			c.plan.Title, c.plan.Date = "Night check", "every day"

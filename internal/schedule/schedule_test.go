@@ -441,7 +441,7 @@ func TestNextOnClocks(t *testing.T) {
 		return loc
 	}
 	helsinki, newYork, santiago := zone("Europe/Helsinki"), zone("America/New_York"), zone("America/Santiago")
-	lordHowe := zone("Australia/Lord_Howe")
+	lordHowe, nuuk := zone("Australia/Lord_Howe"), zone("America/Nuuk")
 	utc := func(y int, mo time.Month, d, h, mi int) time.Time { return time.Date(y, mo, d, h, mi, 0, 0, time.UTC) }
 	for _, tc := range []struct {
 		spec string
@@ -459,6 +459,11 @@ func TestNextOnClocks(t *testing.T) {
 		{"30 1 * * *", newYork, utc(2027, 11, 6, 12, 0), []time.Time{utc(2027, 11, 7, 5, 30), utc(2027, 11, 8, 6, 30)}},
 		// Midnight does not exist on 5 September 2027 in Santiago: 01:00 −03.
 		{"0 0 * * *", santiago, utc(2027, 9, 4, 12, 0), []time.Time{utc(2027, 9, 5, 4, 0), utc(2027, 9, 6, 3, 0)}},
+		// 23:30 does not exist on 27 March 2027 in Nuuk, whose clocks skip
+		// 23:00–24:00 that Saturday (zdump -v -c 2027,2028 America/Nuuk:
+		// 22:59:59 −02 at 00:59:59 UTC, 00:00 −01 on Sunday at 01:00 UTC):
+		// 00:30 −01 on Sunday (01:30 UTC), then 23:30 −01.
+		{"30 23 * * *", nuuk, utc(2027, 3, 27, 12, 0), []time.Time{utc(2027, 3, 28, 1, 30), utc(2027, 3, 29, 0, 30)}},
 		// From 04:05 EEST on 28 March 2027 in Helsinki (01:05 UTC), after
 		// the jump and before the 03:15 it moved: 04:15 EEST that night.
 		{"15 3 * * *", helsinki, utc(2027, 3, 28, 1, 5), []time.Time{utc(2027, 3, 28, 1, 15), utc(2027, 3, 29, 0, 15)}},

@@ -242,7 +242,7 @@ func TestSummaryMidnightSunBegins(t *testing.T) {
 	if cestMinute(pyephemRise18) != "01:49" {
 		t.Fatalf("PyEphem's sunrise %s: the recorded value changed", cestMinute(pyephemRise18))
 	}
-	if !strings.Contains(d18, rise+"\n") || !strings.Contains(d18, ", sunrise to midnight (") {
+	if !strings.Contains(d18, rise+".\n") || !strings.Contains(d18, ", sunrise to midnight (") {
 		t.Errorf("summary of 18 April does not say the Sun stays up after its sunrise at 01:49:\n%s", d18)
 	}
 	// the day length to midnight: 22 h 10 min from PyEphem's sunrise
@@ -273,10 +273,10 @@ func TestSkylineSummaryMarksDayEnds(t *testing.T) {
 	set, rise := cestMinute(pyephemSet17), cestMinute(pyephemRise18)
 	for i, c := range []struct{ want, not []string }{
 		{not: []string{"after midnight", "ending the day before", "stays up"}},
-		{want: []string{"Sunset " + set + " CEST (after midnight, Sun 18 April)\n"}, not: []string{"No sunset"}},
+		{want: []string{"Sunset " + set + " CEST (after midnight, Sun 18 April).\n"}, not: []string{"No sunset"}},
 		{want: []string{
-			"Sunset " + set + " CEST (ending the day before)\n",
-			"Sunrise " + rise + " CEST (the Sun then stays up for more than a day: midnight sun)\n",
+			"Sunset " + set + " CEST (ending the day before).\n",
+			"Sunrise " + rise + " CEST (the Sun then stays up for more than a day: midnight sun).\n",
 			", sunrise to midnight (",
 		}},
 	} {
@@ -514,7 +514,7 @@ func TestSunsetEndingMidnightSun(t *testing.T) {
 	if !strings.HasPrefix(set, want) || strings.Contains(set, "Day length") {
 		t.Errorf("sunset at 00:59:39 CEST:\n%s\nwant it to begin:\n%s", set, want)
 	}
-	if !strings.Contains(summary, "Sunset 01:00 CEST (ending the midnight sun: the Sun had stayed up for more than a day)\n") {
+	if !strings.Contains(summary, "Sunset 01:00 CEST (ending the midnight sun: the Sun had stayed up for more than a day).\n") {
 		t.Errorf("summary of 27 August does not mark its sunset at 01:00 as ending the midnight sun:\n%s", summary)
 	}
 }
@@ -541,9 +541,9 @@ func TestSummaryMarksCivilDuskAfterMidnight(t *testing.T) {
 		dusk       time.Time // PyEphem, UT
 		has, lacks string
 	}{
-		{"2027-06-07", time.Date(2027, 6, 6, 22, 1, 7, 0, time.UTC), "Civil dusk 00:01 CEST (ending the day before)\n", ""},
-		{"2027-07-09", time.Date(2027, 7, 8, 22, 0, 20, 0, time.UTC), "Civil dusk 00:00 CEST (ending the day before)\n", ""},
-		{"2027-07-09", time.Date(2027, 7, 9, 21, 57, 38, 0, time.UTC), "Civil dusk 23:58 CEST\n", "Civil dusk 23:58 CEST ("},
+		{"2027-06-07", time.Date(2027, 6, 6, 22, 1, 7, 0, time.UTC), "Civil dusk 00:01 CEST (ending the day before).\n", ""},
+		{"2027-07-09", time.Date(2027, 7, 8, 22, 0, 20, 0, time.UTC), "Civil dusk 00:00 CEST (ending the day before).\n", ""},
+		{"2027-07-09", time.Date(2027, 7, 9, 21, 57, 38, 0, time.UTC), "Civil dusk 23:58 CEST.\n", "Civil dusk 23:58 CEST ("},
 	} {
 		if !strings.HasPrefix(c.has, "Civil dusk "+cestMinute(c.dusk)+" CEST") {
 			t.Fatalf("PyEphem's dusk %s: the recorded value changed", cestMinute(c.dusk))

@@ -1727,7 +1727,7 @@ func describeSummary(s *siteInfo, d time.Time, length, delta time.Duration, evs 
 		case i == upFrom:
 			b.WriteString(" (the Sun then stays up for more than a day: midnight sun)")
 		}
-		b.WriteByte('\n')
+		b.WriteString(".\n") // every line a sentence, as the notes' and the last
 	}
 	if staysUp {
 		fmt.Fprintf(&b, "%s %s, sunrise to midnight (%s from the day before).", lengthName, hm(length), Change(delta))

@@ -1183,6 +1183,32 @@ func TestSummaryTitlePolarNight(t *testing.T) {
 	}
 }
 
+// TestSummarySameDayLength checks that a daily summary of polar night or
+// midnight Sun after a date of the same says so in one unit, not "0 min
+// (+0 s from the day before)". At 78.92° N, 11.93° E the Sun does not
+// rise on 20 and 21 December 2027 and does not set on 20 and 21 June 2027
+// (PyEphem 4.1.4, pressure 0, upper limb at −34′: NeverUpError and
+// AlwaysUpError).
+func TestSummarySameDayLength(t *testing.T) {
+	s := site(t, "polar-shed", 78.92, 11.93, "Arctic/Longyearbyen")
+	sk := sky(t, "2027-01-01", "2027-12-31")
+	specs := []config.KindSpec{{Kind: mustKinds(t, "daily-summary")[0]}}
+	for _, tc := range []struct{ date, want string }{
+		{"2027-12-21", "Polar night: the Sun does not rise today.\n" +
+			"No civil twilight today: the Sun stays more than 6° below the horizon.\n" +
+			"Day length 0 min, the same as the day before."},
+		{"2027-06-21", "Midnight sun: the Sun does not set today.\nDay length 24 h, the same as the day before."},
+	} {
+		es, err := sk.Entries(context.Background(), s, "f", specs, date(tc.date), date(tc.date))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(es) != 1 || es[0].Description != tc.want {
+			t.Errorf("%s: %+v, want the description %q", tc.date, es, tc.want)
+		}
+	}
+}
+
 // A photoperiod threshold over a window all in polar night or all under
 // the midnight Sun says what the grower sees there, not "longest 0 min" or
 // "shortest 24 h": polar night is a date on which the Sun does not rise,

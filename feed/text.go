@@ -1729,9 +1729,13 @@ func describeSummary(s *siteInfo, d time.Time, length, delta time.Duration, evs 
 		}
 		b.WriteString(".\n") // every line a sentence, as the notes' and the last
 	}
-	if staysUp {
+	switch {
+	case delta.Round(time.Second) == 0 && (length == 0 || length == 24*time.Hour):
+		// polar night or midnight Sun on both dates: no "+0 s" beside "0 min"
+		fmt.Fprintf(&b, "%s %s, the same as the day before.", lengthName, hm(length))
+	case staysUp:
 		fmt.Fprintf(&b, "%s %s, sunrise to midnight (%s from the day before).", lengthName, hm(length), Change(delta))
-	} else {
+	default:
 		fmt.Fprintf(&b, "%s %s (%s from the day before).", lengthName, hm(length), Change(delta))
 	}
 	return title, b.String()

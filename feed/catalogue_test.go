@@ -1159,18 +1159,24 @@ func TestNotReachedTextNearThreshold(t *testing.T) {
 }
 
 // TestSummaryTitlePolarNight checks that the daily summary of a date of
-// polar night says so in its title rather than "Daylight 0 min". At
+// polar night says so in its title rather than "Daylight 0 min", and
+// says it true: not "no daylight" on a date with hours of civil twilight,
+// light enough for outdoor work as the feed's civil dawn says. At
 // 78.92° N on 21 December 2027 the Sun's noon altitude is about
 // 90° − 78.92° − 23.44° = −12.4° (the solstice declination −23.44°,
-// Astronomical Almanac), below the horizon all day; on 21 June its
-// lowest, at midnight, is about 23.44° − (90° − 78.92°) = +12.4°: up all
-// day.
+// Astronomical Almanac), below the horizon all day, and below −6° too;
+// on 21 June its lowest, at midnight, is about 23.44° − (90° − 78.92°) =
+// +12.4°: up all day. On 17 February 2027 the Sun does not rise there
+// (PyEphem 4.1.4, pressure 0, upper limb at −34′: NeverUpError) but its
+// centre is above −6° from 07:34:53 to 15:20:26 UTC (PyEphem, use_center):
+// 08:35 to 16:20 CET as the summary shows them, 7 h 45 min.
 func TestSummaryTitlePolarNight(t *testing.T) {
 	s := site(t, "polar-shed", 78.92, 11.93, "Arctic/Longyearbyen")
 	sk := sky(t, "2027-01-01", "2027-12-31")
 	specs := []config.KindSpec{{Kind: mustKinds(t, "daily-summary")[0]}}
 	for _, tc := range []struct{ date, title string }{
-		{"2027-12-21", "Polar night: no daylight"},
+		{"2027-12-21", "Polar night: the Sun stays below the horizon"},
+		{"2027-02-17", "Polar night: civil twilight 7 h 45 min"},
 		{"2027-06-21", "Daylight 24 h"},
 	} {
 		es, err := sk.Entries(context.Background(), s, "f", specs, date(tc.date), date(tc.date))

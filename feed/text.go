@@ -1677,10 +1677,17 @@ func describeSummary(s *siteInfo, d time.Time, length, delta time.Duration, evs 
 	if length == 0 && slices.ContainsFunc(notes, func(n Note) bool {
 		return n.Family == "sun-horizon" && n.State == astro.AlwaysBelow && !n.Hidden // not behind the hills
 	}) {
-		// not "Daylight 0 min": the date's state, as its description begins
-		title = "Polar night: no daylight"
-		if len(s.Skyline) > 0 {
+		// not "Daylight 0 min": the date's state, as its description
+		// begins, and not "no daylight" either where the date has civil
+		// twilight, which its civil dawn calls light enough for outdoor
+		// work
+		switch civil := civilTwilight(d, loc, evs); {
+		case len(s.Skyline) > 0:
 			title = "Polar night: no direct Sun"
+		case civil > 0:
+			title = "Polar night: civil twilight " + hm(civil)
+		default:
+			title = "Polar night: the Sun stays below the horizon"
 		}
 	}
 	var said []string // dawn and dusk may give one note twice
@@ -1739,4 +1746,34 @@ func describeSummary(s *siteInfo, d time.Time, length, delta time.Duration, evs 
 		fmt.Fprintf(&b, "%s %s (%s from the day before).", lengthName, hm(length), Change(delta))
 	}
 	return title, b.String()
+}
+
+// civilTwilight is the time of date d, starting at midnight in loc, that
+// the Sun's centre spends above −6°, from the civil dawns and dusks of evs
+// as the summary shows them, to the minute: 08:35 to 16:21 is 7 h 46 min.
+// A dusk before any dawn ends a twilight that began before the date, and
+// a dawn without a dusk after it starts one that lasts past the date's
+// end; a dusk after midnight that ends the date's twilight counts on the
+// next date.
+func civilTwilight(d time.Time, loc *time.Location, evs []Event) time.Duration {
+	start, end := midnight(d, loc), midnight(d.AddDate(0, 0, 1), loc)
+	from := start
+	var sum time.Duration
+	in := false
+	for _, e := range evs {
+		if e.Start.Before(start) || !e.Start.Before(end) {
+			continue
+		}
+		switch e.Kind.Name {
+		case "civil-dawn":
+			from, in = ToMinute(e.Start), true
+		case "civil-dusk":
+			sum += ToMinute(e.Start).Sub(from)
+			in = false
+		}
+	}
+	if in {
+		sum += end.Sub(from)
+	}
+	return sum
 }

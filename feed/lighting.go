@@ -689,6 +689,8 @@ type shownClock struct {
 	h, m, s uint32 // to the second (unsigned: their digits are divided unsigned)
 	hm, mm  uint32 // to the minute
 	zone    string // at the second
+	unix    int64  // the instant to the second, in seconds since 1970
+	minute  int64  // the instant to the minute, in seconds since 1970
 }
 
 func shownAt(t time.Time, z *zoneCache) shownClock {
@@ -715,7 +717,7 @@ func shownAt(t time.Time, z *zoneCache) shownClock {
 	}
 	// 0 ≤ s, sm < secondsPerDay: unsigned divisions
 	us32, mins := uint32(s), uint32(sm)/60
-	return shownClock{h: us32 / 3600, m: us32 / 60 % 60, s: us32 % 60, hm: mins / 60, mm: mins % 60, zone: zone}
+	return shownClock{h: us32 / 3600, m: us32 / 60 % 60, s: us32 % 60, hm: mins / 60, mm: mins % 60, zone: zone, unix: us, minute: um}
 }
 
 // second is the clock to the second as seconds since midnight.
@@ -893,7 +895,10 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	}
 	t = append(t, ' ', '(')
 	lamp := len(t)
-	t = appendHM(t, l.Lamp) // as the natural day below
+	// the length between the clock times as the title shows them, to the
+	// minute: 05:39:18 to 06:18:45 is 39 min 27 s, but 05:39–06:19 reads
+	// as 40 min; the row puts the same clock times beside it
+	t = appendHM(t, time.Duration(off.minute-on.minute)*time.Second)
 	lampHM := t[lamp:]
 	end := lt.reached
 	if l.Short {
@@ -901,6 +906,17 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	}
 	t = append(append(t, end...), ')')
 	row = append(append(append(t[len(t):], "Lamps on for "...), lampHM...), end...)
+	// the description's clock times are to the second, and so is the
+	// length it takes, to the nearest minute: 05:39:18 to 06:18:45 is
+	// 39 min; mostly the title's
+	descHM := lampHM
+	var buf [24]byte
+	// hm rounds half a minute up: the two agree when the length to the
+	// second is within [−30 s, 30 s) of the title's whole minutes
+	sec := off.unix - on.unix
+	if d := sec - (off.minute - on.minute); d < -30 || d >= 30 {
+		descHM = appendHM(buf[:0], time.Duration(sec)*time.Second)
+	}
 	pi := partIndex(e.Part)
 	if pi < 2 && l.MadeUp <= 0 {
 		// a morning or evening period that makes up for no other (nearly
@@ -917,7 +933,7 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		b = append(b, ',', ' ', 'o', 'f', 'f', ' ', 'a', 't', ' ',
 			byte('0'+off.h/10), byte('0'+off.h%10), ':', byte('0'+off.m/10), byte('0'+off.m%10), ':', byte('0'+off.s/10), byte('0'+off.s%10), ' ')
 		b = append(s.zone.appendDayMark(append(b, off.zone...), e.End, e.Date), ' ', '(') // " +1 day" after midnight
-		b = append(b, lampHM...)
+		b = append(b, descHM...)
 		if l.Clipped && pi == 1 && off.second() != lt.offSec {
 			if m := movedLimit(s.zone, e.End, lt.off); m != "" {
 				b = append(append(b, "; off "...), m...)
@@ -948,7 +964,7 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		}
 	}
 	b = s.zone.appendDayMark(off.appendSecond(append(b, ", off at "...)), e.End, e.Date)
-	b = append(append(b, " ("...), lampHM...)
+	b = append(append(b, " ("...), descHM...)
 	if l.Clipped && e.Part != partMorning && lt.offSec >= 0 && off.second() != lt.offSec {
 		if m := movedLimit(s.zone, e.End, lt.off); m != "" {
 			b = append(append(b, "; off "...), m...) // as the text above words it
@@ -1028,7 +1044,7 @@ func (lt *lightingText) appendOtherLamps(b []byte, s *siteInfo, e *Event, pi int
 	if s.zone.dayOf(last) != e.Date.Unix()/secondsPerDay {
 		b = append(b, " +1 day"...)
 	}
-	return appendHM(append(b, ',', ' '), to.Sub(from))
+	return appendHM(append(b, ',', ' '), time.Duration(off.minute-on.minute)*time.Second) // as the clock times read
 }
 
 // otherPeriod returns the other period of e's date among the events of a

@@ -262,7 +262,11 @@ func TestLightingEntries(t *testing.T) {
 }
 
 // Lamp titles and descriptions write every hours-and-minutes duration one
-// way, as the rest of the feed does: "1 h 08 min", never "1 h 8 min".
+// way, as the rest of the feed does: "1 h 08 min", never "1 h 8 min"; and
+// each writes the length its own clock times show: the title's between
+// its times to the minute (17:05–21:13 is 4 h 08 min, though 17:04:34 to
+// 21:13:08 is 4 h 08 min 34 s), the description's between its times to
+// the second, to the nearest minute (4 h 09 min).
 func TestLightingDurationsOneFormat(t *testing.T) {
 	s := site(t, "vienna", 48.2, 16.4, "Europe/Vienna")
 	sk := sky(t, "2027-01-01", "2027-12-31")
@@ -273,7 +277,9 @@ func TestLightingDurationsOneFormat(t *testing.T) {
 	}
 	hmRe := regexp.MustCompile(`(\d+) h (\d+) min`)
 	lampRe := regexp.MustCompile(`\((\d+ h \d+ min|\d+ min)[,;]`)
-	padded := 0
+	titleTimesRe := regexp.MustCompile(`^Lamps on (\d\d:\d\d)–(\d\d:\d\d) \(`)
+	descTimesRe := regexp.MustCompile(`on at (\d\d:\d\d:\d\d) CES?T, off at (\d\d:\d\d:\d\d) CES?T \((.*?)\)`)
+	padded, differ := 0, 0
 	for _, e := range es {
 		if e.Facts.Note {
 			continue
@@ -288,9 +294,20 @@ func TestLightingDurationsOneFormat(t *testing.T) {
 			}
 		}
 		lamp := lampRe.FindStringSubmatch(e.Title)
-		if lamp == nil || !strings.Contains(e.Description, "("+lamp[1]+")") {
-			t.Errorf("%s: title %q and description %q write the lamp time differently", e.Date.Format(time.DateOnly), e.Title, e.Description)
+		times := titleTimesRe.FindStringSubmatch(e.Title)
+		if lamp == nil || times == nil || lamp[1] != hm(clockSpan(t, times[1], times[2], 60)) {
+			t.Errorf("%s: title %q: the length is not the time between its clock times", e.Date.Format(time.DateOnly), e.Title)
 		}
+		secs := descTimesRe.FindStringSubmatch(e.Description)
+		if secs == nil || !strings.HasPrefix(secs[3], hm(clockSpan(t, secs[1], secs[2], 1))) {
+			t.Errorf("%s: description %q: the length is not the time between its clock times", e.Date.Format(time.DateOnly), e.Description)
+		}
+		if lamp != nil && lamp[1] != secs[3][:len(lamp[1])] {
+			differ++
+		}
+	}
+	if differ == 0 {
+		t.Error("no title whose clock times to the minute read another length than the description's: the check did not run")
 	}
 	if padded == 0 {
 		t.Error("no duration with fewer than 10 minutes in the window: the check did not run")
@@ -992,4 +1009,20 @@ func TestLightingLimitRepeatedByTheClocks(t *testing.T) {
 		strings.Contains(e.Description, "moved") {
 		t.Errorf("%s–%s %q\nwant the lamps on at %s, 02:30:00 CEST", e.Start, e.End, e.Description, at)
 	}
+}
+
+// clockSpan is the time from clock from to clock to on one date, both
+// "15:04" (unit 60) or "15:04:05" (unit 1).
+func clockSpan(t *testing.T, from, to string, unit int) time.Duration {
+	t.Helper()
+	layout := "15:04:05"
+	if unit == 60 {
+		layout = "15:04"
+	}
+	a, err1 := time.Parse(layout, from)
+	b, err2 := time.Parse(layout, to)
+	if err1 != nil || err2 != nil {
+		t.Fatalf("clock times %q, %q: %v, %v", from, to, err1, err2)
+	}
+	return b.Sub(a)
 }

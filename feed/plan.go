@@ -945,16 +945,23 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 	case pl.cfg.For > 0:
 		en.End = start.Add(pl.cfg.For.D())
 	}
+	// a clock time moved by the clocks' jump forward, or one they show
+	// twice going back (the first of the two taken): said beside it
 	sm, sMoved := movedClock(*pl.start, start, z)
+	if !sMoved && z.changeNear(start.Unix()) {
+		sm, sMoved = twiceClock(*pl.start, start, z)
+	}
 	var em clockMove
 	eMoved := false
 	if pl.end != nil && !en.End.IsZero() {
-		em, eMoved = movedClock(*pl.end, en.End, z)
+		if em, eMoved = movedClock(*pl.end, en.End, z); !eMoved && z.changeNear(en.End.Unix()) {
+			em, eMoved = twiceClock(*pl.end, en.End, z)
+		}
 	}
 	// a start and an end the same jump of the clocks moves: said once,
 	// after the end
 	sd := z.date(start)
-	both := sMoved && eMoved && sm.by == em.by && sd.Equal(z.date(en.End))
+	both := sMoved && eMoved && sm.by > 0 && sm.by == em.by && sd.Equal(z.date(en.End))
 	var next time.Time // the start's date, when it is past the plan's
 	if sd.After(d) {
 		next = sd
@@ -964,7 +971,7 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 	// the clocks going back, said once: after the end the plan lasts
 	// across the change to, else after a start the clocks show twice
 	back, across := "", false
-	if pl.start.IsClock || pl.end != nil && pl.end.IsClock {
+	if (pl.start.IsClock || pl.end != nil && pl.end.IsClock) && sm.by >= 0 && em.by >= 0 { // else said beside that time
 		back, across = goBack(start, en.End, z)
 	}
 	if back != "" && !across {
@@ -985,6 +992,8 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 			b = append(append(append(b, " ("...), bothMovedWords(sm, em)...), ')')
 		case ed.After(d) && ed.After(sd): // said once when the start is past midnight too
 			b = appendMoved(b, em, eMoved, ed, false)
+		case eMoved && em.by < 0 && sm.by < 0: // the start said why
+			b = append(append(append(b, " (the first "...), clockText(em.written)...), " too)"...)
 		default: // the date of a move is not said twice either
 			b = appendMoved(b, em, eMoved, time.Time{}, next.IsZero() || !ed.Equal(next))
 		}
@@ -1094,10 +1103,11 @@ func clockText(c time.Duration) string {
 
 // clockMove is a plan's clock time that the local clock skips on its date
 // (clocks set forward, as for summer time), so that clockOn moved it by the
-// jump: see movedClock.
+// jump: see movedClock; or, by negative, one the clocks show twice when
+// they go back, of which clockOn takes the first: see twiceClock.
 type clockMove struct {
 	written time.Duration // the clock time as written
-	by      time.Duration // how much later it is shown
+	by      time.Duration // how much later it is shown; negative when shown twice, the clocks going back by −by
 	t       time.Time     // the instant, in the site's zone
 }
 
@@ -1128,14 +1138,61 @@ func (m clockMove) day() time.Time {
 	return time.Unix(floorDiv(wall, secondsPerDay)*secondsPerDay, 0).UTC()
 }
 
+// twiceClock is the clock time ts shown at t when the clocks show it twice
+// on t's date, going back, t being the first of the two (as clockOn takes
+// it); false when ts is not a clock time or the clocks show it once.
+func twiceClock(ts config.TimeSpec, t time.Time, z *zoneCache) (clockMove, bool) {
+	if !ts.IsClock {
+		return clockMove{}, false
+	}
+	u := t.Unix()
+	_, off := z.at(u)
+	next := z.nextChange(u)
+	if next-u > 2*secondsPerDay { // see changeNear
+		return clockMove{}, false
+	}
+	_, after := z.at(next)
+	by := time.Duration(off-after) * time.Second
+	if by <= 0 || time.Duration(next-u)*time.Second > by { // as ShownTwice
+		return clockMove{}, false
+	}
+	return clockMove{written: ts.Clock, by: -by, t: t.In(z.loc)}, true
+}
+
+// changeNear reports whether the zone's offset may change within two days
+// after the Unix second u (no change has set the clocks back further):
+// only then can the clocks show u's reading twice (twiceClock), and the
+// zone's next period is looked up, which the next entry's times would look
+// up back. A second outside the cached period may be near one too.
+func (z *zoneCache) changeNear(u int64) bool {
+	return u < z.from || z.to-u <= 2*secondsPerDay
+}
+
 // words says why the time moved, "moved from 00:30, which the clocks skip
 // on Sun 28 Mar 2027: the clocks go forward for summer time by 1 h", or,
 // when its date is said beside it (not dated), "moved from 00:30, which the
 // clocks skip: they go forward for summer time by 1 h". The date the
 // clocks skip it on is said beside it too when that is not the date shown
 // at the instant: "moved from 23:30, which the clocks skip on Sat 27 Mar
-// 2027" beside Sun 28 Mar.
+// 2027" beside Sun 28 Mar. It says which of two readings a time the clocks
+// show twice is, "the first 01:30, which the clocks show twice: on Sun 7
+// Nov 2027 at 02:00 EDT they go back from summer time by 1 h" (without "on
+// Sun 7 Nov 2027" when not dated and the change is on the time's date; see
+// twiceClock).
 func (m clockMove) words(dated bool) string {
+	if m.by < 0 {
+		// the change ends m.t's period: its clock before the change
+		name, off := m.t.Zone()
+		_, end := astro.ZonePeriod(m.t)
+		label := ZoneLabel(name)
+		change := end.In(time.FixedZone(label, off))
+		w := "the first " + clockText(m.written) + ", which the clocks show twice: "
+		if y, mo, d := m.t.Date(); dated || change.Day() != d || change.Month() != mo || change.Year() != y {
+			w += "on " + change.Format("Mon 2 Jan 2006") + " "
+		}
+		summer := m.t.IsDST() && !end.In(m.t.Location()).IsDST()
+		return w + "at " + change.Format("15:04 ") + label + " they " + ClocksGo(false, summer, -m.by)
+	}
 	change := ClocksGo(true, m.t.IsDST(), m.by)
 	day := m.day()
 	if y, mo, d := m.t.Date(); !dated && day.Equal(time.Date(y, mo, d, 0, 0, 0, 0, time.UTC)) {

@@ -936,8 +936,9 @@ func TestPlanClockRepeatedTakesTheFirst(t *testing.T) {
 	}
 }
 
-// A plan in the hour the clocks show twice says they go back, as one in
-// the hour they skip says they go forward (TestPlanClockSkipped). In
+// A plan in the hour the clocks show twice says they go back, and that its
+// clock time is the first of the two readings, as one in the hour they
+// skip says it moved and why (TestPlanClockSkipped). In
 // America/Havana the clocks go back from 01:00 CDT (UT − 4 h) to 00:00 CST
 // (UT − 5 h) at 05:00 UT on Sunday 7 November 2027 (tz database: Rule Cuba
 // 2012 max - Nov Sun>=1 0:00s 0 S), so a plan from "00:30" for 30 min that
@@ -945,9 +946,11 @@ func TestPlanClockRepeatedTakesTheFirst(t *testing.T) {
 // they go back from 02:00 EDT to 01:00 EST on the same date (Rule US 2007
 // max - Nov Sun>=1 2:00 0 S), so a plan at "01:30", without end, is at the
 // first 01:30 (05:30 UT), before the change. The nights before have no
-// such note.
+// such note. A plan whose end alone is shown twice (Havana, 23:50 to 00:20
+// the night before) says it of its end, and one whose start and end both
+// are (00:15 to 00:45) says it once in full.
 func TestPlanClockRepeatedSaysSo(t *testing.T) {
-	const havana = " (on Sun 7 Nov 2027 at 01:00 CDT the clocks go back from summer time by 1 h)"
+	const havana = "which the clocks show twice: on Sun 7 Nov 2027 at 01:00 CDT they go back from summer time by 1 h)"
 	hav := site(t, "hav", 23.13, -82.38, "America/Havana")
 	es := planEntries(t, hav, "2027-11-06", "2027-11-07", config.Plan{Title: "Night check", Date: "every day", Start: "00:30", For: config.Duration(30 * time.Minute)})
 	if len(es) != 2 {
@@ -956,7 +959,7 @@ func TestPlanClockRepeatedSaysSo(t *testing.T) {
 	if want := "From 00:30:00 CDT to 01:00:00 CDT."; !strings.HasPrefix(es[0].Description, want) {
 		t.Errorf("6 November: %q, want %q", es[0].Description, want)
 	}
-	if want := "From 00:30:00 CDT to 00:00:00 CST" + havana + "."; !strings.HasPrefix(es[1].Description, want) ||
+	if want := "From 00:30:00 CDT (the first 00:30, " + havana + " to 00:00:00 CST."; !strings.HasPrefix(es[1].Description, want) ||
 		!es[1].Start.Equal(time.Date(2027, 11, 7, 4, 30, 0, 0, time.UTC)) {
 		t.Errorf("7 November: %q from %s, want %q from 04:30 UT", es[1].Description, es[1].Start.UTC(), want)
 	}
@@ -968,13 +971,13 @@ func TestPlanClockRepeatedSaysSo(t *testing.T) {
 	if strings.Contains(es[0].Description, "clocks") {
 		t.Errorf("6 November: %q", es[0].Description)
 	}
-	if want := "From 01:30:00 EDT (on Sun 7 Nov 2027 at 02:00 EDT the clocks go back from summer time by 1 h)."; !strings.HasPrefix(es[1].Description, want) {
+	if want := "From 01:30:00 EDT (the first 01:30, which the clocks show twice: on Sun 7 Nov 2027 at 02:00 EDT they go back from summer time by 1 h)."; !strings.HasPrefix(es[1].Description, want) {
 		t.Errorf("7 November: %q, want %q", es[1].Description, want)
 	}
 	// 01:00, the repeated hour's first reading, is shown twice too: at 05:00
 	// UT (EDT) and at 06:00 UT (EST)
 	es = planEntries(t, ny, "2027-11-07", "2027-11-07", config.Plan{Title: "Check", Date: "every day", Start: "01:00"})
-	if want := "From 01:00:00 EDT (on Sun 7 Nov 2027 at 02:00 EDT the clocks go back from summer time by 1 h)."; len(es) != 1 || !strings.HasPrefix(es[0].Description, want) {
+	if want := "From 01:00:00 EDT (the first 01:00, which the clocks show twice: on Sun 7 Nov 2027 at 02:00 EDT they go back from summer time by 1 h)."; len(es) != 1 || !strings.HasPrefix(es[0].Description, want) {
 		t.Errorf("7 November at 01:00: %v, want %q", es, want)
 	}
 	// America/Santiago, whose abbreviations the tz database writes as
@@ -987,7 +990,25 @@ func TestPlanClockRepeatedSaysSo(t *testing.T) {
 	if len(es) != 1 {
 		t.Fatalf("%d entries", len(es))
 	}
-	if want := "From 23:15:00 UTC−03 to 23:15:00 UTC−04 (on Sun 4 Apr 2027 at 00:00 UTC−03 the clocks go back from summer time by 1 h)."; !strings.HasPrefix(es[0].Description, want) {
+	if want := "From 23:15:00 UTC−03 (the first 23:15, which the clocks show twice: on Sun 4 Apr 2027 at 00:00 UTC−03 they go back from summer time by 1 h) to 23:15:00 UTC−04."; !strings.HasPrefix(es[0].Description, want) {
 		t.Errorf("3 April: %q, want %q", es[0].Description, want)
+	}
+	for _, c := range []struct {
+		pl   config.Plan
+		from string
+		want string
+		end  time.Time
+	}{
+		{config.Plan{Title: "Late", Date: "every day", Start: "23:50", End: "00:20"}, "2027-11-06",
+			"From 23:50:00 CDT to 00:20:00 CDT the next day (Sun 7 Nov; the first 00:20, which the clocks show twice: at 01:00 CDT they go back from summer time by 1 h).",
+			time.Date(2027, 11, 7, 4, 20, 0, 0, time.UTC)},
+		{config.Plan{Title: "Water", Date: "every day", Start: "00:15", End: "00:45"}, "2027-11-07",
+			"From 00:15:00 CDT (the first 00:15, " + havana + " to 00:45:00 CDT (the first 00:45 too).",
+			time.Date(2027, 11, 7, 4, 45, 0, 0, time.UTC)},
+	} {
+		es = planEntries(t, hav, c.from, c.from, c.pl)
+		if len(es) != 1 || !strings.HasPrefix(es[0].Description, c.want) || !es[0].End.Equal(c.end) {
+			t.Errorf("%s on %s: %v, want %q to %s", c.pl.Title, c.from, es, c.want, c.end)
+		}
 	}
 }

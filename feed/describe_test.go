@@ -766,3 +766,47 @@ func TestPhotoperiodSaysSunDoesNotSetOrRise(t *testing.T) {
 		t.Errorf("no photoperiod entry on %s", day)
 	}
 }
+
+// A dark window across a change of the clocks says so, so that its clock
+// times, which the change puts an hour nearer or further apart, read with
+// its length. At 36.4° S, 145.2° E (Australia/Melbourne) summer time ends
+// at 03:00 AEDT on Sunday 4 April 2027 and begins at 02:00 AEST on Sunday
+// 3 October 2027 (the tz database's rule for Victoria: the first Sundays of
+// April and October); the nights of 3–4 April and 2–3 October are dark
+// through those hours (astronomical dusk 20:36:32 AEDT, moonrise 03:33:41
+// AEST; 20:58:56 AEST to astronomical dawn 05:26:03 AEDT, each within a
+// second of PyEphem 4.1.4). The nights around them say nothing of the
+// clocks.
+func TestDarkWindowAcrossClockChange(t *testing.T) {
+	s := site(t, "Quillon Heights", -36.4, 145.2, "Australia/Melbourne")
+	for _, c := range []struct {
+		first, last, night, want string
+	}{
+		{"2027-04-02", "2027-04-04", "2027-04-03",
+			"Dark sky on the night of 3–4 April 2027 from 20:36:32 AEDT to 03:33:41 AEST +1 day (7 h 57 min). " +
+				"The clocks go back from summer time by 1 h during it: 03:00 AEDT becomes 02:00 AEST."},
+		{"2027-10-01", "2027-10-03", "2027-10-02",
+			"Dark sky on the night of 2–3 October 2027 from 20:58:56 AEST to 05:26:03 AEDT +1 day (7 h 27 min). " +
+				"The clocks go forward for summer time by 1 h during it: 02:00 AEST becomes 03:00 AEDT."},
+	} {
+		sk := sky(t, c.first, c.last)
+		es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{{Kind: mustKinds(t, "dark-window")[0]}}, date(c.first), date(c.last))
+		if err != nil {
+			t.Fatal(err)
+		}
+		found := false
+		for _, e := range es {
+			if e.Date.Format(time.DateOnly) == c.night {
+				found = true
+				if e.Description != c.want {
+					t.Errorf("night of %s:\n got %q\nwant %q", c.night, e.Description, c.want)
+				}
+			} else if strings.Contains(e.Description, "clocks") {
+				t.Errorf("night of %s, without a change of the clocks: %q", e.Date.Format(time.DateOnly), e.Description)
+			}
+		}
+		if !found {
+			t.Errorf("no dark window on the night of %s in %d entries", c.night, len(es))
+		}
+	}
+}

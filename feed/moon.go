@@ -305,6 +305,7 @@ func describeMoon(s *siteInfo, e Event) (title, row, desc string) {
 		title = row + ", " + NightOf(e.Date, loc)
 		fmt.Fprintf(&b, "Dark sky on the %s from %s%s to %s%s (%s).",
 			NightOf(e.Date, loc), at, DayMark(e.Start, e.Date, loc), localClock(e.End, loc), DayMark(e.End, e.Date, loc), length)
+		b.WriteString(clocksDuring(ToSecond(e.Start), ToSecond(e.End), loc))
 	default:
 		return e.Kind.String(), "", fmt.Sprintf("%s at %s.", e.Kind, at)
 	}
@@ -349,4 +350,27 @@ func describeMoonNote(s *siteInfo, n Note) (title, row, desc string) {
 	}
 	// the site and the date are the entry's LOCATION and date
 	return title, "", title + "."
+}
+
+// clocksDuring says how the clocks of loc change between start and end, "
+// The clocks go back from summer time by 1 h during it: 03:00 AEDT becomes
+// 02:00 AEST." (Australia/Melbourne, 4 April 2027), so that a span's clock
+// times, which the change puts nearer or further apart than its length,
+// read with it; "" when they do not change.
+func clocksDuring(start, end time.Time, loc *time.Location) string {
+	var b strings.Builder
+	for ch := range OffsetChanges(loc, start, end) {
+		before, _ := ch.At.Add(-time.Second).In(loc).Zone()
+		after, _ := ch.At.In(loc).Zone()
+		was := ch.At.In(time.FixedZone(ZoneLabel(before), ch.Before))
+		now := ch.At.In(time.FixedZone(ZoneLabel(after), ch.After))
+		// summer time is the clock's after a change forward, before one back
+		by, forward, summer := time.Duration(ch.After-ch.Before)*time.Second, ch.After > ch.Before, ch.At.In(loc).IsDST()
+		if !forward {
+			by, summer = -by, ch.At.Add(-time.Second).In(loc).IsDST()
+		}
+		fmt.Fprintf(&b, " The clocks %s during it: %s becomes %s.", ClocksGo(forward, summer, by),
+			was.Format("15:04 MST"), now.Format("15:04 MST"))
+	}
+	return b.String()
 }

@@ -156,6 +156,30 @@ func TestKindGroupsAreKinds(t *testing.T) {
 	_ = http.StatusOK
 }
 
+// The builder's golden hour is the feeds' band, the Sun's centre from −4°
+// to 6° (the vocabulary's golden-hour): it begins before sunrise and ends
+// after sunset (at 52.95° N, 1.05° W on 12 June 2027 it begins at
+// 04:08:56 BST, 30 min before the sunrise at 04:38:48 BST: PyEphem 4.1.4),
+// so its words give the band, not "shortly after sunrise and before
+// sunset".
+func TestGoldenHourExplainedAsItsBand(t *testing.T) {
+	found := false
+	for _, g := range kindGroups {
+		for _, k := range g.Kinds {
+			if k.Kind != "golden-hour" {
+				continue
+			}
+			found = true
+			if !strings.Contains(k.Explain, "4° below") || !strings.Contains(k.Explain, "6° above") || strings.Contains(k.Explain, "after sunrise") {
+				t.Errorf("golden hour explained as %q, want the band −4°..6° around sunrise and sunset", k.Explain)
+			}
+		}
+	}
+	if !found {
+		t.Error("the builder offers no golden hour")
+	}
+}
+
 // The builder offers each twilight's dawn with its dusk: the evening's
 // crossing of an altitude without the morning's leaves an observer who
 // stays out, or a crew that sails at first light, without the other end.

@@ -31,7 +31,7 @@ var kindGroups = []kindGroup{
 		{Kind: "daily-summary", Label: "Daylight", Explain: "a summary of the day: one all-day note per day with day length and twilight"},
 	}},
 	{ID: "events", Name: "Events and photography", Explain: "Planning weddings, shoots and outdoor shows around the light.", Kinds: []kindChoice{
-		{Kind: "golden-hour", Label: "Golden hour", Explain: "low, warm sunlight shortly after sunrise and before sunset"},
+		{Kind: "golden-hour", Label: "Golden hour", Explain: "low, warm light around sunrise and sunset: the Sun from 4° below to 6° above the horizon"},
 		{Kind: "blue-hour", Label: "Blue hour", Explain: "the deep blue sky just before sunrise and after sunset"},
 		{Kind: "solar-noon", Label: "Solar noon", Explain: "the Sun at its highest, the shortest shadows", Shift: true},
 	}},

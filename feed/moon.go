@@ -356,8 +356,13 @@ func describeMoonNote(s *siteInfo, n Note) (title, row, desc string) {
 // The clocks go back from summer time by 1 h during it: 03:00 AEDT becomes
 // 02:00 AEST." (Australia/Melbourne, 4 April 2027), so that a span's clock
 // times, which the change puts nearer or further apart than its length,
-// read with it; "" when they do not change.
+// read with it; "" when they do not change, or change and change back
+// (then the clock times read with the length again).
 func clocksDuring(start, end time.Time, loc *time.Location) string {
+	_, from := start.In(loc).Zone()
+	if _, to := end.In(loc).Zone(); from == to {
+		return "" // nearly every span: the walk of the changes is not needed
+	}
 	var b strings.Builder
 	for ch := range OffsetChanges(loc, start, end) {
 		before, _ := ch.At.Add(-time.Second).In(loc).Zone()

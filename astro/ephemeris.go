@@ -147,6 +147,11 @@ func (o Observer) RiseSetAltitude() float64 {
 // dip, and gives the same altitudes as 0° to the last bit.
 const LevelHorizon = math.SmallestNonzeroFloat64
 
+// RaisedHorizon says whether o's horizon is above level: a Horizon above
+// 0°, hills that hide the Sun before it sets, not LevelHorizon (a level
+// horizon at 0°, which a test of Horizon > 0 would take for one).
+func (o Observer) RaisedHorizon() bool { return o.Horizon > LevelHorizon }
+
 // Dip returns the dip of the horizon in degrees for an eye elevation
 // metres above a flat (sea) horizon: 1.76′·√elevation (common practice;
 // refraction over the sea included), 0 at or below sea level. From 1150 m

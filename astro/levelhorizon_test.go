@@ -72,3 +72,18 @@ func TestLevelHorizonWithoutDip(t *testing.T) {
 		}
 	}
 }
+
+// A level horizon written 0 (LevelHorizon) is not a raised one, though its
+// Horizon is above 0: only a Horizon that hides the Sun above the flat
+// horizon is, as 0.5° and 10° do; an unset one (0) and a sea horizon below
+// level (−0.5°) are not.
+func TestRaisedHorizon(t *testing.T) {
+	for _, tc := range []struct {
+		horizon float64
+		want    bool
+	}{{0, false}, {LevelHorizon, false}, {-0.5, false}, {0.5, true}, {10, true}} {
+		if got := (Observer{Horizon: tc.horizon}).RaisedHorizon(); got != tc.want {
+			t.Errorf("Observer{Horizon: %g}.RaisedHorizon() = %v, want %v", tc.horizon, got, tc.want)
+		}
+	}
+}

@@ -601,7 +601,7 @@ func (kt *kindTimes) note(d time.Time) (Note, bool) {
 				n.SunUp = false // the reason stays the twilight's
 			}
 		}
-	} else if kt.family == "sun-horizon" && (kt.alt == skylineKey || kt.c.p.Observer.Horizon > 0) {
+	} else if kt.family == "sun-horizon" && (kt.alt == skylineKey || kt.c.p.Observer.RaisedHorizon()) {
 		// the Sun up over the flat horizon at noon but behind the hills
 		// all day, not the polar night: as the sunrise and sunset kinds'
 		// notes (collector.crossings)

@@ -1390,7 +1390,7 @@ func (c *collector) crossings(k config.Kind, alt float64, dir astro.Direction, f
 			if up {
 				n.State = astro.AlwaysAbove
 			}
-			if !up && (alt == skylineKey || c.p.Observer.Horizon > 0) {
+			if !up && (alt == skylineKey || c.p.Observer.RaisedHorizon()) {
 				tr, ok, err := c.noonOf(d)
 				if err != nil {
 					return err

@@ -651,6 +651,12 @@ func detailsAt(e *feed.Event, loc *time.Location, o astro.Observer) string {
 	case "sunrise", "photoperiod", config.KindLighting:
 		parts = append(parts, length+feed.Length(e.DayLength, time.Second))
 	case "daily-summary":
+		if e.DayChange.Round(time.Second) == 0 && (e.DayLength == 0 || e.DayLength == 24*time.Hour) {
+			// polar night or midnight Sun on both dates, as the feeds word
+			// it: no "+0 s" beside "0 s"
+			parts = append(parts, length+feed.Length(e.DayLength, time.Minute)+", the same as the day before")
+			break
+		}
 		parts = append(parts, length+feed.Length(e.DayLength, time.Second)+", change "+feed.Change(e.DayChange))
 	}
 	if hasAzimuth(*e) {

@@ -30,7 +30,8 @@
 // and the file carries a VTIMEZONE for that zone generated from Go's time zone
 // database, with one observance per real offset or abbreviation change across
 // the feed's window (plus a margin) and no recurrence rules; an observance is
-// DAYLIGHT when clocks go forward into it, STANDARD otherwise. A local time that
+// DAYLIGHT when clocks go forward into it, STANDARD otherwise (a move across
+// the date line, by a day, takes the tz database's own flag). A local time that
 // occurs twice (in the hour that repeats when clocks go back) is written in
 // UTC instead: RFC 5545 §3.3.5 reads it as the first occurrence but parsers
 // differ, and a UTC value names exactly the computed instant everywhere. With Calendar.UTC, or a site zone that

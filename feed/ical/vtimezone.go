@@ -29,20 +29,22 @@ type observance struct {
 // is not used: for zones with "negative DST" (Europe/Dublin, whose legal
 // standard time is the summer time) it would mark winter as daylight time.
 // The initial observance takes its kind from the next change (up to a year
-// on); a change of abbreviation alone keeps the kind before it. A next
-// change forward by 20 h or more is no change of season but the zone
-// moving across the date line, skipping a date: the initial observance
-// then takes the tz database's flag. Pacific/Apia's −10 before its jump to
-// +14 on 30 December 2011 was daylight time (zdump -v Pacific/Apia:
-// isdst=1); every other such jump of the tz database leaves standard time
-// (Kiritimati 1994, Kwajalein 1993, Fakaofo 2011, Manila 1844).
+// on); a change of abbreviation alone keeps the kind before it. A change
+// of 20 h or more is no change of season but the zone moving across the
+// date line (dateLine), skipping a date or showing one twice: the
+// observances on both sides of it take the tz database's flag. Pacific/
+// Apia's −10 and +14 on either side of its jump on 30 December 2011 were
+// daylight time (zdump -v Pacific/Apia: isdst=1); every other such jump of
+// the tz database is between standard times, forward (Kiritimati and
+// Kanton 1994, Kwajalein 1993, Fakaofo 2011, Manila 1844) or back (Alaska
+// 1867, Apia 1892, Kwajalein 1969): zdump -v gives isdst=0 on both sides.
 func observances(loc *time.Location, from, to time.Time) []observance {
 	name, off := from.In(loc).Zone()
 	first := observance{Start: from, From: off, To: off, Name: name}
 	// The initial observance is daylight time if clocks next go back.
 	if o, _, ok := nextChange(loc, from, to.AddDate(1, 0, 0), func(_ string, o int) bool { return o != off }); ok {
 		first.DST = o < off
-		if o-off >= 20*3600 {
+		if dateLine(off, o) {
 			first.DST = from.In(loc).IsDST()
 		}
 	}
@@ -54,13 +56,21 @@ func observances(loc *time.Location, from, to time.Time) []observance {
 		}
 		n, _ := at.In(loc).Zone()
 		dst := obs[len(obs)-1].DST
-		if o != off {
+		switch {
+		case dateLine(off, o):
+			dst = at.In(loc).IsDST()
+		case o != off:
 			dst = o > off
 		}
 		obs = append(obs, observance{Start: at, From: off, To: o, Name: n, DST: dst})
 		name, off, t = n, o, at
 	}
 }
+
+// dateLine says whether a change of the UTC offset from one to o (in
+// seconds) moves the zone across the date line: by 20 h or more, either
+// way, where a change of season is an hour or two.
+func dateLine(from, o int) bool { return o-from >= 20*3600 || from-o >= 20*3600 }
 
 // nextChange walks the changes of loc's offset or abbreviation after t, up
 // to limit (astro.ZoneChanges, which steps over the bounds Go gives without

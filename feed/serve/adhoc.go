@@ -49,15 +49,21 @@ const (
 )
 
 // AdhocQuery is a validated, normalised ad-hoc feed request. Two requests
-// that differ only in spelling (parameter order, kind order, trailing zeros,
-// case of true/false) give the same AdhocQuery and share a cache entry.
+// that differ only in spelling (parameter order, trailing zeros, case of
+// true/false) give the same AdhocQuery and share a cache entry. Two that
+// differ in the order of their kinds do not (the calendar's description
+// says what the kinds mean in that order, as a configured feed's does in
+// the order of its kinds entries), but they share the ID, and so the
+// entries' UIDs.
 type AdhocQuery struct {
 	Latitude  float64        // degrees, north positive, rounded to 0.0001°
 	Longitude float64        // degrees, east positive, rounded to 0.0001°
 	Elevation float64        // metres above sea level, rounded to 1 m
 	Location  *time.Location // the zone local dates and times are in
 	// Kinds are the event kinds in the canonical form returned by
-	// Options.ParseKind, sorted and without duplicates.
+	// Options.ParseKind, in the order the query gave them (the operator's
+	// default ones in the order of Options.AdhocDefaultKinds), without
+	// duplicates: a kind given twice is where it was first.
 	Kinds []string
 	// Start is the first local date of the window, at 00:00 UTC (only its
 	// year, month and day count).
@@ -134,10 +140,12 @@ func (q AdhocQuery) linkPlace() string {
 	return p
 }
 
-// ID is a short identifier of the place, zone and kinds (not of the window):
-// "at-" and 12 hex digits. Use it as the feed id so event UIDs stay the same
-// when the same query is asked again another day.
+// ID is a short identifier of the place, zone and kinds (not of the window,
+// nor of the kinds' order): "at-" and 12 hex digits. Use it as the feed id
+// so event UIDs stay the same when the same query is asked again another
+// day, its kinds in another order too.
 func (q AdhocQuery) ID() string {
+	q.Kinds = slices.Sorted(slices.Values(q.Kinds))
 	sum := sha256.Sum256([]byte(q.place()))
 	return "at-" + hex.EncodeToString(sum[:6])
 }
@@ -431,10 +439,11 @@ func parseKinds(v string, parse func(string) (string, error)) ([]string, error) 
 		if err != nil {
 			return nil, &QueryError{Param: ParamKinds, Value: p, Msg: oneLine(err.Error())}
 		}
-		kinds = append(kinds, k)
+		if !slices.Contains(kinds, k) { // given twice: where it was first
+			kinds = append(kinds, k)
+		}
 	}
-	slices.Sort(kinds)
-	return slices.Compact(kinds), nil
+	return kinds, nil
 }
 
 // oneLine keeps the first line of a message.

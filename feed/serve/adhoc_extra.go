@@ -79,9 +79,9 @@ func (q *AdhocQuery) parseExtras(get getter, lim *adhocLimits) error {
 		if len(q.Kinds) >= maxKinds {
 			return &QueryError{Param: ParamLighting, Value: v, Msg: fmt.Sprintf("more than %d kinds", maxKinds)}
 		}
-		kinds := append(slices.Clone(q.Kinds), k) // Kinds may be the shared default list
-		slices.Sort(kinds)
-		q.Kinds = slices.Compact(kinds)
+		if !slices.Contains(q.Kinds, k) { // after the kinds asked for
+			q.Kinds = append(slices.Clone(q.Kinds), k) // Kinds may be the shared default list
+		}
 	}
 	if v, ok := get(ParamOffsets); ok {
 		return q.parseOffsets(v, lim)

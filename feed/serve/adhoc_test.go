@@ -175,10 +175,12 @@ func TestAdhocNormalisedAndCached(t *testing.T) {
 	if first.StatusCode != 200 {
 		t.Fatalf("status %d: %s", first.StatusCode, body(t, first))
 	}
-	want := "lat=47.5&lon=13.05&elev=424&tz=Europe/Vienna&kinds=sunrise,sunset&utc=false&start=2026-12-02&days=365"
+	// the kinds in the query's order: the description explains them in it
+	want := "lat=47.5&lon=13.05&elev=424&tz=Europe/Vienna&kinds=sunset,sunrise&utc=false&start=2026-12-02&days=365"
 	if got.String() != want {
 		t.Errorf("query = %s\nwant    %s", got.String(), want)
 	}
+	id := got.ID()
 	if got.Location.String() != "Europe/Vienna" || got.Days != 365 || !got.Start.Equal(time.Date(2026, 12, 2, 0, 0, 0, 0, time.UTC)) {
 		t.Errorf("query = %+v", got)
 	}
@@ -199,10 +201,11 @@ func TestAdhocNormalisedAndCached(t *testing.T) {
 		t.Errorf("offsets = %v", got.Offsets)
 	}
 	calls.Store(1) // that request is not the one the cache checks below count
-	// The same query spelled differently is a cache hit.
+	// The same query spelled differently is a cache hit (a kind given
+	// twice is where it was first).
 	for _, q := range []string{
-		"kinds=sunrise,sunset&tz=Europe/Vienna&lon=13.0500&lat=47.5&elev=424",
-		"lat=47.5&lon=13.05&tz=Europe/Vienna&kinds=%20sunrise%20,sunset,sunrise&elev=423.6&utc=FALSE&start=2026-12-02&days=365",
+		"kinds=sunset,sunrise&tz=Europe/Vienna&lon=13.0500&lat=47.5&elev=424",
+		"lat=47.5&lon=13.05&tz=Europe/Vienna&kinds=%20sunset%20,sunrise,sunset&elev=423.6&utc=FALSE&start=2026-12-02&days=365",
 	} {
 		r := get(t, h, "GET", "/at.ics?"+q)
 		if r.StatusCode != 200 || r.Header.Get("ETag") != first.Header.Get("ETag") {
@@ -212,9 +215,17 @@ func TestAdhocNormalisedAndCached(t *testing.T) {
 	if n := calls.Load(); n != 1 {
 		t.Errorf("ad-hoc builder called %d times, want 1 (cache)", n)
 	}
-	r := get(t, h, "GET", "/at.ics?lat=47.5&lon=13.05&tz=Europe/Vienna&kinds=sunrise,sunset&elev=424", "If-None-Match", first.Header.Get("ETag"))
+	r := get(t, h, "GET", "/at.ics?lat=47.5&lon=13.05&tz=Europe/Vienna&kinds=sunset,sunrise&elev=424", "If-None-Match", first.Header.Get("ETag"))
 	if r.StatusCode != 304 {
 		t.Errorf("conditional ad-hoc request: status %d, want 304", r.StatusCode)
+	}
+	// The kinds in another order are another feed (its description
+	// explains them in that order), with the same ID and so the same UIDs.
+	if r := get(t, h, "GET", "/at.ics?lat=47.5&lon=13.05&tz=Europe/Vienna&kinds=sunrise,sunset&elev=424"); r.StatusCode != 200 || calls.Load() != 2 {
+		t.Errorf("kinds in another order: status %d, builder called %d times, want 2", r.StatusCode, calls.Load())
+	}
+	if strings.Join(got.Kinds, ",") != "sunrise,sunset" || got.ID() != id {
+		t.Errorf("kinds in another order: kinds %v ID %s, want sunrise,sunset and the ID %s", got.Kinds, got.ID(), id)
 	}
 	// A refresh empties the cache.
 	if s.cache.len() == 0 {
@@ -266,7 +277,7 @@ func TestAdhocDisabledAndDefaults(t *testing.T) {
 	if r := get(t, s.Handler(), "GET", "/at.ics?lat=1&lon=1&tz=UTC"); r.StatusCode != 200 {
 		t.Fatalf("status %d", r.StatusCode)
 	}
-	if strings.Join(got.Kinds, ",") != "sunrise,sunset" || got.Days != 30 {
+	if strings.Join(got.Kinds, ",") != "sunset,sunrise" || got.Days != 30 { // in the operator's order
 		t.Errorf("defaults: %s", got.String())
 	}
 	if r := get(t, s.Handler(), "GET", "/at.ics?lat=1&lon=1&tz=UTC&days=61"); r.StatusCode != 400 {

@@ -98,10 +98,10 @@ func TestAdhocExtras(t *testing.T) {
 	if got.Name != "Fernhollow Farm" || got.Horizon != 2 || got.Alarm != 15*time.Minute {
 		t.Errorf("name %q horizon %v alarm %v", got.Name, got.Horizon, got.Alarm)
 	}
-	if strings.Join(got.Kinds, ",") != "lighting:16h,sunrise" {
-		t.Errorf("kinds %v, want lighting:16h and sunrise", got.Kinds)
+	if strings.Join(got.Kinds, ",") != "sunrise,lighting:16h" { // the lamps after the kinds asked for
+		t.Errorf("kinds %v, want sunrise, then lighting:16h", got.Kinds)
 	}
-	for _, part := range []string{"name=Fernhollow+Farm", "horizon=2", "alarm=15m", "kinds=lighting:16h,sunrise"} {
+	for _, part := range []string{"name=Fernhollow+Farm", "horizon=2", "alarm=15m", "kinds=sunrise,lighting:16h"} {
 		if !strings.Contains(got.String(), part) {
 			t.Errorf("canonical query %q lacks %q", got.String(), part)
 		}

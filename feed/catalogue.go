@@ -152,6 +152,7 @@ func (sky *Sky) Calendar(ctx context.Context, s *config.Site, f *config.Feed, fi
 		return nil, fmt.Errorf("feed %q: %w", f.ID, err)
 	}
 	cal.Entries, cal.text, cal.NotCrossed, cal.SkippedPlans = entries, text, found.notCrossed, found.skippedPlans
+	cal.SharedNotes = found.shared
 	noteLampLimitGaps(s, f, cal, found.gaps)
 	return cal, nil
 }
@@ -226,7 +227,7 @@ func (sky *Sky) Entries(ctx context.Context, s *config.Site, feedID string, spec
 func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []config.KindSpec, room int, keepText bool) (_ []Entry, text []byte, _ error) {
 	last := col.last
 	days := int(col.last.Sub(col.first).Hours()/24) + 1
-	w := entryWriter{feedID: feedID, site: col.siteInfo(s), noted: map[string]bool{}, last: civil(last), keepText: keepText}
+	w := entryWriter{feedID: feedID, site: col.siteInfo(s), noted: map[string]noted{}, last: civil(last), keepText: keepText}
 	w.out = releasedEntries.get(days*(len(specs)+1) + room)
 	if keepText {
 		// the text of every kind, one after the other, and of the plans
@@ -294,6 +295,7 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 		col.events, col.notes = col.events[:0], col.notes[:0]
 	}
 	w.flushText()
+	col.shared = w.shared
 	if keepText {
 		return w.out, w.text, nil
 	}
@@ -765,9 +767,11 @@ type entryWriter struct {
 	seen   map[string]int
 	// keys holds the bytes of seen's keys, one after the other (see keep).
 	keys  []byte
-	noted map[string]bool // notes already written, by family and date
-	cats  map[string][]string
-	buf   []byte
+	noted map[string]noted // notes already written, by family and date
+	// shared are the kinds a note stands for beside its own (SharedNotes)
+	shared map[string][]string
+	cats   map[string][]string
+	buf    []byte
 	// out holds the entries written; its elements past its length are
 	// zero (keep clears those it drops), so that next need not zero them
 	out   []Entry
@@ -1261,12 +1265,21 @@ func (w *entryWriter) note(n Note) {
 		title, row, desc = describeNote(w.site, n)
 	}
 	key := "note|" + n.Family + "|" + n.Date.Format(time.DateOnly)
-	if w.noted[key] {
-		return // the same state from a sibling kind (sunrise and sunset)
+	if was, ok := w.noted[key]; ok {
+		// the same state from a sibling kind (sunrise and sunset): one
+		// entry, which stands for this kind too
+		if k := n.Kind.String(); k != was.kind && !slices.Contains(w.shared[was.uid], k) {
+			if w.shared == nil {
+				w.shared = map[string][]string{}
+			}
+			w.shared[was.uid] = append(w.shared[was.uid], k)
+		}
+		return
 	}
-	w.noted[key] = true
+	uid := w.uid(key)
+	w.noted[key] = noted{uid, n.Kind.String()}
 	w.out = append(w.out, Entry{
-		UID:         w.uid(key),
+		UID:         uid,
 		Kind:        n.Kind.String(),
 		Title:       title,
 		row:         row,
@@ -1280,6 +1293,9 @@ func (w *entryWriter) note(n Note) {
 		Facts:       Facts{Note: true, State: n.State, Until: n.Until, DayLength: n.DayLength, DirectSun: n.DirectSun, Short: n.Lamp > 0, Longest: n.Longest},
 	})
 }
+
+// noted is a note entry written: its UID and kind.
+type noted struct{ uid, kind string }
 
 func (w *entryWriter) summary(spec config.KindSpec, d time.Time, length, change time.Duration, evs []Event, notes []Note, carried bool, dusk time.Time) {
 	title, desc := describeSummary(w.site, d, length, change, evs, notes, carried, dusk)

@@ -170,6 +170,12 @@ type Calendar struct {
 	// (00:00 UTC), FirstDate.
 	Stamp   time.Time
 	Entries []Entry
+	// SharedNotes are, by the UID of a note entry written once for several
+	// of the feed's kinds, the kinds it stands for beside its Kind: "No
+	// civil dusk or dawn today" for civil-dawn (Kind) and civil-dusk, "the
+	// Sun does not set today" for sunrise and sunset. Nil without such
+	// notes.
+	SharedNotes map[string][]string
 	// TrimmedTo, when set, is the last local date (00:00 UTC) the entries
 	// reach after the window was shortened to keep the feed under its size
 	// limit.

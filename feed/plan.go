@@ -142,10 +142,13 @@ type found struct {
 	gaps         *limitGaps
 	notCrossed   []KindNote
 	skippedPlans []SkippedPlan
+	shared       map[string][]string // Calendar.SharedNotes
 }
 
 // found is what c found beside the entries.
-func (c *collector) found() found { return found{gaps: c.gaps, notCrossed: c.notCrossed} }
+func (c *collector) found() found {
+	return found{gaps: c.gaps, notCrossed: c.notCrossed, shared: c.shared}
+}
 
 // limitGaps are the lighting limits of a feed that do nothing on some of
 // its dates (see collector.gaps).
@@ -250,7 +253,7 @@ func (sky *Sky) allPlanDates(col *collector, parsed []*plan) (planDates, error) 
 func (sky *Sky) planEntries(col *collector, s *config.Site, feedID string, parsed []*plan, kinds []config.KindSpec, pd planDates, out []Entry, text []byte) ([]Entry, []byte, error) {
 	last := col.last
 	col.spec, col.maxLit = config.KindSpec{}, 0
-	w := entryWriter{feedID: feedID, site: col.siteInfo(s), noted: map[string]bool{}, last: last, out: out, clockOn: col,
+	w := entryWriter{feedID: feedID, site: col.siteInfo(s), noted: map[string]noted{}, last: last, out: out, clockOn: col,
 		dates: col.keyDates, firstDay: col.first.Unix() / secondsPerDay}
 	w.spans = textSpans.get(pd.total)
 	defer func() { textSpans.put(w.spans) }()

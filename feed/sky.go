@@ -970,6 +970,9 @@ type collector struct {
 	thresholds   map[float64]*threshold
 	maxLit       float64         // dark-window: the Moon's largest illuminated fraction still dark
 	spec         config.KindSpec // the options of the kind being added (lighting)
+	// shared are the kinds a note entry stands for beside its own, by its
+	// UID (Calendar.SharedNotes), as the entries' writer found them
+	shared map[string][]string
 	// lamps is the rest of a block of room for the lamp periods' figures
 	// (keepLamps), lampBlock the block's length
 	lamps     []eventMore

@@ -6,6 +6,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"io"
+	"iter"
 	"slices"
 	"strconv"
 	"strings"
@@ -247,18 +248,24 @@ func writeEntriesJSON(w io.Writer, s *config.Site, from, to time.Time, cal *feed
 	}
 	b := append([]byte("{\n  \"feed\": "), id...)
 	b = append(b, ",\n  \"entries\": ["...)
+	n := 0
 	for i := range cal.Entries {
-		line, err := json.Marshal(toJSONEntry(cal, &cal.Entries[i]))
-		if err != nil {
-			return err
+		for kind := range listedKinds(cal, &cal.Entries[i]) {
+			j := toJSONEntry(cal, &cal.Entries[i])
+			j.Kind = kind
+			line, err := json.Marshal(j)
+			if err != nil {
+				return err
+			}
+			if n > 0 {
+				b = append(b, ',')
+			}
+			b = append(b, "\n    "...)
+			b = append(b, line...)
+			n++
 		}
-		if i > 0 {
-			b = append(b, ',')
-		}
-		b = append(b, "\n    "...)
-		b = append(b, line...)
 	}
-	if len(cal.Entries) > 0 {
+	if n > 0 {
 		b = append(b, "\n  "...)
 	}
 	b, err = appendSiteEnd(append(b, ']'), s, from, to)
@@ -290,13 +297,33 @@ func writeEntriesCSV(w io.Writer, cal *feed.Calendar) error {
 				endLocal = localStamp(e.End, loc)
 			}
 		}
-		_ = cw.Write(append([]string{j.Date, j.Kind, j.Title, yes(j.AllDay), j.Start, j.End, startLocal, endLocal,
-			j.Part, j.Direction, yes(j.Note), j.State, j.Until, num(j.Altitude), num(j.Azimuth), num(j.Distance), num(j.DayLength), num(j.DirectSun),
-			num(j.DayChange), num(j.Lit), num(j.Lamp), yes(j.Short), yes(j.NextDay), j.Missing, num(j.Alarm), j.UID, j.Description, yes(j.Open)},
-			j.jsonEclipse.csvCells()...))
+		for kind := range listedKinds(cal, e) {
+			_ = cw.Write(append([]string{j.Date, kind, j.Title, yes(j.AllDay), j.Start, j.End, startLocal, endLocal,
+				j.Part, j.Direction, yes(j.Note), j.State, j.Until, num(j.Altitude), num(j.Azimuth), num(j.Distance), num(j.DayLength), num(j.DirectSun),
+				num(j.DayChange), num(j.Lit), num(j.Lamp), yes(j.Short), yes(j.NextDay), j.Missing, num(j.Alarm), j.UID, j.Description, yes(j.Open)},
+				j.jsonEclipse.csvCells()...))
+		}
 	}
 	cw.Flush()
 	return cw.Error()
+}
+
+// listedKinds are the kinds an entry is listed under in JSON and CSV: its
+// own, then every other kind a note stands for (SharedNotes), so that
+// a script that picks the rows of civil-dusk finds "No civil dusk or dawn
+// today", written once in the feed for civil-dawn and civil-dusk, on its
+// date; the rows of one entry have the same uid.
+func listedKinds(cal *feed.Calendar, e *feed.Entry) iter.Seq[string] {
+	return func(yield func(string) bool) {
+		if !yield(e.Kind) {
+			return
+		}
+		for _, k := range cal.SharedNotes[e.UID] {
+			if !yield(k) {
+				return
+			}
+		}
+	}
 }
 
 func yes(b bool) string {

@@ -810,3 +810,46 @@ func TestDarkWindowAcrossClockChange(t *testing.T) {
 		}
 	}
 }
+
+// A lamp period across a change of the clocks says so too: morning lamps
+// to 18 h at 52.95° N, 1.05° W (Europe/London, whose clocks go back at
+// 02:00 BST on Sunday 31 October 2027 and forward at 01:00 GMT on Sunday
+// 28 March 2027: the tz database's EU rule, the last Sundays of October
+// and March) burn from the evening before until sunrise, 06:59:17 GMT on
+// 31 October and 06:48:26 BST on 28 March (PyEphem 4.1.4: 06:59:17 UT and
+// 05:48:25 UT, within a second). Their clock times read an hour off their
+// length; the dates around them say nothing of the clocks.
+func TestLampPeriodAcrossClockChange(t *testing.T) {
+	s := site(t, "Thistlewick Barn", 52.95, -1.05, "Europe/London")
+	spec := config.KindSpec{Kind: mustKinds(t, "lighting:18h")[0], Lamps: config.LampsMorning}
+	for _, c := range []struct {
+		first, last, day, want string
+	}{
+		{"2027-10-30", "2027-11-01", "2027-10-31",
+			"Morning lamps on at 23:35:35 BST, off at 06:59:17 GMT (8 h 24 min). " +
+				"The clocks go back from summer time by 1 h during it: 02:00 BST becomes 01:00 GMT.\nNatural day 9 h 36 min; target 18 h."},
+		{"2027-03-27", "2027-03-29", "2027-03-28",
+			"Morning lamps on at 00:31:19 GMT, off at 06:48:26 BST (5 h 17 min). " +
+				"The clocks go forward for summer time by 1 h during it: 01:00 GMT becomes 02:00 BST.\nNatural day 12 h 43 min; target 18 h."},
+	} {
+		sk := sky(t, c.first, c.last)
+		es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date(c.first), date(c.last))
+		if err != nil {
+			t.Fatal(err)
+		}
+		found := false
+		for _, e := range es {
+			if e.Date.Format(time.DateOnly) == c.day {
+				found = true
+				if e.Description != c.want {
+					t.Errorf("%s:\n got %q\nwant %q", c.day, e.Description, c.want)
+				}
+			} else if strings.Contains(e.Description, "clocks") {
+				t.Errorf("%s, without a change of the clocks: %q", e.Date.Format(time.DateOnly), e.Description)
+			}
+		}
+		if !found {
+			t.Errorf("no lamp period on %s in %d entries", c.day, len(es))
+		}
+	}
+}

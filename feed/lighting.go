@@ -1,6 +1,7 @@
 package feed
 
 import (
+	"bytes"
 	"fmt"
 	"math"
 	"strings"
@@ -942,7 +943,7 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		if lt.both != nil {
 			b = lt.appendOtherLamps(b, s, e, pi)
 		}
-		b = append(b, lt.open...)
+		b = appendTail(b, len(dst), lt.open, on, off, e, s.zone)
 		return append(appendHM(b, e.DayLength), lt.tail[pi][b2i(l.Clipped)][b2i(l.Short)]...), t, row
 	}
 	whole := e.Part == partPolarNight || e.Part == partBehindSkyline // one period round solar noon
@@ -975,11 +976,11 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	}
 	switch {
 	case whole && l.Clipped:
-		b = append(b, lt.near...)
+		b = appendTail(b, len(dst), lt.near, on, off, e, s.zone)
 	case whole:
-		b = append(b, lt.centred...)
+		b = appendTail(b, len(dst), lt.centred, on, off, e, s.zone)
 	default:
-		b = append(b, lt.open...)
+		b = appendTail(b, len(dst), lt.open, on, off, e, s.zone)
 	}
 	b = append(appendHM(b, e.DayLength), lt.goal...)
 	other := otherPart(e.Part)
@@ -1017,6 +1018,25 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		b = append(b, "The target is not reached today.\n"...)
 	}
 	return b[:len(b)-1], t, row // without the last line's newline
+}
+
+// appendTail appends tail, the end of the bracket after a lamp period's
+// length and of its sentence (lightingText's open, centred or near), with
+// a change of the clocks between on and off said at the end of that
+// sentence (clocksDuring): the period's clock times are then nearer or
+// further apart than its length, "23:35:35 BST, off at 06:59:17 GMT (8 h
+// 24 min). The clocks go back from summer time by 1 h during it: 02:00 BST
+// becomes 01:00 GMT." Nearly every period has one zone's label at both
+// ends, and nothing more to look up. The text from b[from:] on, the
+// period's so far, may have said it already, beside a limit the clocks
+// skip ("off moved from 00:30, which the clocks skip …: the clocks go
+// forward …"): then it is not said twice.
+func appendTail(b []byte, from int, tail string, on, off shownClock, e *Event, z *zoneCache) []byte {
+	if on.zone == off.zone || bytes.Contains(b[from:], []byte("the clocks ")) {
+		return append(b, tail...)
+	}
+	i := strings.Index(tail, ".\n") + 1
+	return append(append(append(b, tail[:i]...), clocksDuring(ToSecond(e.Start), ToSecond(e.End), z.loc)...), tail[i:]...)
 }
 
 // otherLamps name the other period of lamps: both, after a morning (0) or

@@ -37,17 +37,24 @@ func builderTestServer(t testing.TB) *Server {
 	return s
 }
 
-func TestPreviewJSON(t *testing.T) {
-	s := builderTestServer(t)
-	r := get(t, s.Handler(), "GET", "/at.json?lat=-33.45&lon=-70.6667&kinds=sunrise&name=Quebrada&start=2026-06-21")
+// previewOf is /at.json's answer to query, which must be a 200.
+func previewOf(t *testing.T, s *Server, query string) previewResult {
+	t.Helper()
+	r := get(t, s.Handler(), "GET", "/at.json?"+query)
 	b := body(t, r)
 	if r.StatusCode != 200 {
-		t.Fatalf("status %d: %s", r.StatusCode, b)
+		t.Fatalf("%s: status %d: %s", query, r.StatusCode, b)
 	}
 	var res previewResult
 	if err := json.Unmarshal([]byte(b), &res); err != nil {
 		t.Fatal(err)
 	}
+	return res
+}
+
+func TestPreviewJSON(t *testing.T) {
+	s := builderTestServer(t)
+	res := previewOf(t, s, "lat=-33.45&lon=-70.6667&kinds=sunrise&name=Quebrada&start=2026-06-21")
 	if res.Zone != "America/Santiago" || !res.ZoneFound {
 		t.Errorf("zone %q found=%v, want America/Santiago from the coordinates", res.Zone, res.ZoneFound)
 	}
@@ -574,15 +581,7 @@ func TestPreviewInstantsInUTC(t *testing.T) {
 // of that zone, and the feed's id is the one the unescaped query gives.
 func TestLinksEscapeZone(t *testing.T) {
 	s := builderTestServer(t)
-	r := get(t, s.Handler(), "GET", "/at.json?lat=0&lon=-177.5&kinds=sunrise")
-	b := body(t, r)
-	if r.StatusCode != 200 {
-		t.Fatalf("status %d: %s", r.StatusCode, b)
-	}
-	var res previewResult
-	if err := json.Unmarshal([]byte(b), &res); err != nil {
-		t.Fatal(err)
-	}
+	res := previewOf(t, s, "lat=0&lon=-177.5&kinds=sunrise")
 	if res.Zone != "Etc/GMT+12" {
 		t.Fatalf("zone %q, want Etc/GMT+12 at sea at 177.5° W", res.Zone)
 	}
@@ -596,7 +595,7 @@ func TestLinksEscapeZone(t *testing.T) {
 		}
 	}
 	// a link written by hand with the "+" as it is: told how to write it
-	r = get(t, s.Handler(), "GET", "/at.ics?lat=0&lon=-177.5&kinds=sunrise&tz=Etc/GMT+12")
+	r := get(t, s.Handler(), "GET", "/at.ics?lat=0&lon=-177.5&kinds=sunrise&tz=Etc/GMT+12")
 	if m, want := body(t, r), `parameter tz="Etc/GMT 12": unknown time zone (a "+" in a link is read as a space: for Etc/GMT+12 write tz=Etc/GMT%2B12)`; r.StatusCode != 400 || !strings.Contains(m, want) {
 		t.Errorf("tz=Etc/GMT+12: %d %q, want 400 saying %q", r.StatusCode, m, want)
 	}

@@ -154,6 +154,25 @@ func TestSeasonNamedForHemisphere(t *testing.T) {
 	}
 }
 
+// A season that rounds to whole days gives its length without a zero part:
+// the December solstice of 22 Dec 2027 02:42 UTC to the March equinox of
+// 20 Mar 2028 02:17 UTC (USNO, "Earth's Seasons and Apsides", 2027 and 2028)
+// is 88 d 23.6 h, "89 d", never "89 d 0 h".
+func TestSeasonLengthWithoutZeroHours(t *testing.T) {
+	sk := sky(t, "2027-12-01", "2028-01-01")
+	specs := []config.KindSpec{{Kind: mustKinds(t, "december-solstice")[0]}}
+	entries, err := sk.Entries(context.Background(), site(t, "north", 48.2, 16.4, "Europe/Vienna"), "seasons", specs, date("2027-12-01"), date("2028-01-01"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(entries) != 1 {
+		t.Fatalf("%d entries, want 1", len(entries))
+	}
+	if d := entries[0].Description; !strings.Contains(d, "it lasts 89 d, until") {
+		t.Errorf("description %q, want the season's length as \"it lasts 89 d, until\"", d)
+	}
+}
+
 // A far-future equinox says how uncertain it is (the Earth's rotation is
 // forecast: 9 s per decade after 2023, about a minute by 2090); a near one
 // says nothing.

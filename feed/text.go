@@ -444,10 +444,15 @@ func appendChange(b []byte, d time.Duration) []byte {
 	return appendDuration(b, d, time.Second, false)
 }
 
-// days formats a long duration as "92 d 18 h".
+// days formats a long duration as "92 d 18 h", or "89 d" when it rounds to
+// whole days (never "89 d 0 h").
 func days(d time.Duration) string {
 	d = d.Round(time.Hour)
-	return fmt.Sprintf("%d d %d h", int(d/(24*time.Hour)), int((d%(24*time.Hour))/time.Hour))
+	n, h := int(d/(24*time.Hour)), int((d%(24*time.Hour))/time.Hour)
+	if h == 0 {
+		return fmt.Sprintf("%d d", n)
+	}
+	return fmt.Sprintf("%d d %d h", n, h)
 }
 
 // degrees formats an angle with one decimal and a proper minus sign; an

@@ -430,7 +430,7 @@ func heldText(held []HeldDates, first, last, today time.Time) string {
 			continue
 		}
 		what := feed.AndList(h.What)
-		from, to := chartDate(h.First, first, last), chartDate(h.Last, first, last)
+		from, to := stretchDates(h.First, h.Last, first, last)
 		shaded := ""
 		if !today.IsZero() && today.After(first) && !today.After(last) && h.First.Before(today) {
 			shaded = ", in the shaded weeks before today"
@@ -753,6 +753,18 @@ func chartDate(t, first, last time.Time) string {
 		return t.Format("2 Jan 2006")
 	}
 	return t.Format("2 Jan")
+}
+
+// stretchDates writes the dates a..b of a stretch of the chart first..last as
+// chartDate does, except that a, in another year than b, gets its year when
+// b has one: "from 5 Dec 2026 to 4 Dec 2027", never "from 5 Dec to 4 Dec
+// 2027", which reads backwards.
+func stretchDates(a, b, first, last time.Time) (string, string) {
+	from, to := chartDate(a, first, last), chartDate(b, first, last)
+	if a.Year() != b.Year() && to != b.Format("2 Jan") {
+		from = a.Format("2 Jan 2006")
+	}
+	return from, to
 }
 
 // todayMark is the line at days[i], today's date (see todayIndex); nil when

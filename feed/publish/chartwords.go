@@ -65,7 +65,7 @@ func seasons(dates []time.Time, first, last time.Time) string {
 		if i < len(dates) && dates[i].Sub(dates[i-1]) < seasonGap {
 			continue
 		}
-		a, b := chartDate(dates[start], first, last), chartDate(dates[i-1], first, last)
+		a, b := stretchDates(dates[start], dates[i-1], first, last)
 		if a == b {
 			parts = append(parts, "on "+a)
 		} else {

@@ -97,3 +97,34 @@ func TestThresholdBeforeTodayInPastTense(t *testing.T) {
 		}
 	}
 }
+
+// A stretch whose last date carries its year (the same day of the year
+// before is in the chart) gives its first date, in the year before, its
+// year too: a chart of four weeks before today (5 December 2026) and a
+// year on reads "from 5 Dec 2026 to 4 Dec 2027", never "from 5 Dec to
+// 4 Dec 2027", which reads backwards. A stretch whose dates carry no year
+// keeps none.
+func TestChartStretchAcrossYearsGivesFirstYear(t *testing.T) {
+	d := func(y int, m time.Month, day int) time.Time { return time.Date(y, m, day, 0, 0, 0, 0, time.UTC) }
+	first, last := d(2026, 11, 7), d(2027, 12, 4)
+	var all []time.Time
+	for t := d(2026, 12, 5); !t.After(last); t = t.AddDate(0, 0, 1) {
+		all = append(all, t)
+	}
+	for _, tc := range []struct {
+		name  string
+		dates []time.Time
+		want  string
+	}{
+		{"a year", all, "from 5 Dec 2026 to 4 Dec 2027"},
+		{"a winter", []time.Time{d(2026, 12, 20), d(2027, 1, 10), d(2027, 2, 6)}, "from 20 Dec to 6 Feb"},
+	} {
+		if got := seasons(tc.dates, first, last); got != tc.want {
+			t.Errorf("%s: %q, want %q", tc.name, got, tc.want)
+		}
+	}
+	held := HeldDates{Feed: "dark", What: []string{"dark windows"}, First: d(2026, 12, 5), Last: d(2027, 12, 1)}
+	if got, want := heldText([]HeldDates{held}, first, last, time.Time{}), "Dark windows of the feed dark drawn from 5 Dec 2026 to 1 Dec 2027, the dates it holds."; got != want {
+		t.Errorf("feed of fewer dates: %q, want %q", got, want)
+	}
+}

@@ -969,7 +969,13 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 	if sd.After(d) {
 		next = sd
 	}
-	b = append(z.appendClock(append(b, "From "...), start), pt.startWords...)
+	// a plan with no end (an instant) is at its start; one whose end was
+	// not found is still a span, from its start
+	lead := "From "
+	if en.End.IsZero() && !noEnd {
+		lead = "At "
+	}
+	b = append(z.appendClock(append(b, lead...), start), pt.startWords...)
 	b = appendMoved(b, sm, sMoved && !both, next, true)
 	// the clocks going back, said once: after the end the plan lasts
 	// across the change to, else after a start the clocks show twice

@@ -614,7 +614,7 @@ func TestPlanEndFirstAfterStart(t *testing.T) {
 		// 9 September: sunset at 21:19:49 CEST, then no civil dusk until
 		// 22:12:47 UT on the 10th, which is on the 11th in CEST
 		{"none that day or the next", isfjell, "2027-09-09", "2027-09-09", watch, "2027-09-09",
-			"2027-09-09T19:19:49Z", "", false, "; no civil dusk that day or the next to end it."},
+			"2027-09-09T19:19:49Z", "", false, "From 21:19:49 CEST (sunset); no civil dusk that day or the next to end it."},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			e := entryOn(t, planEntries(t, c.s, c.first, c.last, c.plan), c.date)
@@ -639,7 +639,9 @@ func TestPlanEndFirstAfterStart(t *testing.T) {
 // TestPlanEveningStart: a plan that starts at an evening event (a sunset,
 // a dusk) takes the one of its date's evening, the first after the date's
 // solar noon, past midnight too, not the first of the date, which may be
-// the evening before's; an evening without one gets the date's note.
+// the evening before's; an evening without one gets the date's note. A
+// plan with a start alone is an instant: "At 23:44:18 BST", where a span
+// says "From … to …" (one whose end is not found too, above).
 // Values from PyEphem (tools/pyephem-checks/values.py,
 // plan_ends_past_midnight and plan_evening_starts; the Sun's centre at
 // −0.8333° and −18°).
@@ -663,9 +665,9 @@ func TestPlanEveningStart(t *testing.T) {
 		// 2027; on the evening of 1 May 23:43:54.004 UT (00:43:54 BST on
 		// the 2nd), not the evening before's 23:30:10.684 UT on 30 April
 		// (00:30:11 BST on 1 May); none on the evening of 2 May
-		{"dusk before midnight", glen, "2027-04-24", "2027-05-02", party, "2027-04-24", "2027-04-24T22:44:17.914Z", "From 23:44:18 BST (astronomical dusk)."},
+		{"dusk before midnight", glen, "2027-04-24", "2027-05-02", party, "2027-04-24", "2027-04-24T22:44:17.914Z", "At 23:44:18 BST (astronomical dusk)."},
 		{"dusk past midnight", glen, "2027-04-24", "2027-05-02", party, "2027-05-01", "2027-05-01T23:43:54.004Z",
-			"From 00:43:54 BST (astronomical dusk) the next day (Sun 2 May)."},
+			"At 00:43:54 BST (astronomical dusk) the next day (Sun 2 May)."},
 		{"dusk past midnight, found by date", glen, "2027-04-01", "2027-05-31",
 			config.Plan{Title: "Star party", Date: "every saturday", Start: "astronomical-dusk"}, "2027-05-01", "2027-05-01T23:43:54.004Z",
 			"the next day (Sun 2 May)."},
@@ -679,7 +681,7 @@ func TestPlanEveningStart(t *testing.T) {
 		// CEST on the 28th), 21:52:26.776 UT on the 28th (23:52:27 CEST)
 		{"sunset past midnight", fjord, "2027-07-26", "2027-07-28", walk, "2027-07-26", "2027-07-26T22:21:45.115Z", "the next day (Tue 27 Jul)."},
 		{"sunset past midnight again", fjord, "2027-07-26", "2027-07-28", walk, "2027-07-27", "2027-07-27T22:04:53.562Z", "the next day (Wed 28 Jul)."},
-		{"sunset before midnight", fjord, "2027-07-26", "2027-07-28", walk, "2027-07-28", "2027-07-28T21:52:26.776Z", "From 23:52:27 CEST (sunset)."},
+		{"sunset before midnight", fjord, "2027-07-26", "2027-07-28", walk, "2027-07-28", "2027-07-28T21:52:26.776Z", "At 23:52:27 CEST (sunset)."},
 		// 78.92° N, 11.93° E: sunset 21:51:28.353 UT on 14 April 2027, then
 		// 22:17:31.223 UT on the 15th (00:17:31 CEST on the 16th)
 		{"the evening of the 14th", isfjell, "2027-04-14", "2027-04-16", watch, "2027-04-14", "2027-04-14T21:51:28.353Z", "From 23:51:28 CEST (sunset)"},
@@ -971,13 +973,13 @@ func TestPlanClockRepeatedSaysSo(t *testing.T) {
 	if strings.Contains(es[0].Description, "clocks") {
 		t.Errorf("6 November: %q", es[0].Description)
 	}
-	if want := "From 01:30:00 EDT (the first 01:30, which the clocks show twice: on Sun 7 Nov 2027 at 02:00 EDT they go back from summer time by 1 h)."; !strings.HasPrefix(es[1].Description, want) {
+	if want := "At 01:30:00 EDT (the first 01:30, which the clocks show twice: on Sun 7 Nov 2027 at 02:00 EDT they go back from summer time by 1 h)."; !strings.HasPrefix(es[1].Description, want) {
 		t.Errorf("7 November: %q, want %q", es[1].Description, want)
 	}
 	// 01:00, the repeated hour's first reading, is shown twice too: at 05:00
 	// UT (EDT) and at 06:00 UT (EST)
 	es = planEntries(t, ny, "2027-11-07", "2027-11-07", config.Plan{Title: "Check", Date: "every day", Start: "01:00"})
-	if want := "From 01:00:00 EDT (the first 01:00, which the clocks show twice: on Sun 7 Nov 2027 at 02:00 EDT they go back from summer time by 1 h)."; len(es) != 1 || !strings.HasPrefix(es[0].Description, want) {
+	if want := "At 01:00:00 EDT (the first 01:00, which the clocks show twice: on Sun 7 Nov 2027 at 02:00 EDT they go back from summer time by 1 h)."; len(es) != 1 || !strings.HasPrefix(es[0].Description, want) {
 		t.Errorf("7 November at 01:00: %v, want %q", es, want)
 	}
 	// America/Santiago, whose abbreviations the tz database writes as

@@ -73,13 +73,25 @@ func datesOutsideWindow(f *config.Feed, shown []string, listed [][]time.Time, ru
 // datesFilteredOut words the dates that a kinds entry of feed f lists
 // (listed, as datesOutsideWindow has them) and that the same entry's months
 // or weekdays leave out, so that it never keeps them: one line per date and
-// filter. shown are the kinds entries as check's table writes them.
+// filter, naming together the entries that list the date and leave it out
+// by the same filter (kinds sharing one dates list, a YAML anchor). shown
+// are the kinds entries as check's table writes them.
 func datesFilteredOut(f *config.Feed, shown []string, listed [][]time.Time) []string {
-	var out []string
+	var order []string             // the reasons, in the order first given
+	named := map[string][]string{} // the entries of each
 	for i, k := range f.Kinds {
 		for _, d := range listed[i] {
-			out = append(out, dateLeftOut(f.ID, shown[i], d, k.Months, k.Weekdays)...)
+			for _, why := range leftOutWhy(d, k.Months, k.Weekdays) {
+				if _, ok := named[why]; !ok {
+					order = append(order, why)
+				}
+				named[why] = append(named[why], shown[i])
+			}
 		}
+	}
+	out := make([]string, len(order))
+	for i, why := range order {
+		out[i] = fmt.Sprintf("feed %q: %s: %s", f.ID, feed.AndList(named[why]), why)
 	}
 	return out
 }
@@ -88,13 +100,24 @@ func datesFilteredOut(f *config.Feed, shown []string, listed [][]time.Time) []st
 // its own months or weekdays leave out: one line per filter.
 func dateLeftOut(feedID, entry string, d time.Time, months, weekdays []string) []string {
 	var out []string
+	for _, why := range leftOutWhy(d, months, weekdays) {
+		out = append(out, fmt.Sprintf("feed %q: %s: %s", feedID, entry, why))
+	}
+	return out
+}
+
+// leftOutWhy says why the months or weekdays leave out the date d, one
+// reason per filter: "2027-06-12 is a Saturday, not in its weekdays (sun):
+// it will never be published".
+func leftOutWhy(d time.Time, months, weekdays []string) []string {
+	var out []string
 	if !config.NewDateFilter(nil, months, nil).Allows(d) {
-		out = append(out, fmt.Sprintf("feed %q: %s: %s is in %s, not in its months (%s): it will never be published",
-			feedID, entry, d.Format(time.DateOnly), d.Month(), strings.Join(months, ", ")))
+		out = append(out, fmt.Sprintf("%s is in %s, not in its months (%s): it will never be published",
+			d.Format(time.DateOnly), d.Month(), strings.Join(months, ", ")))
 	}
 	if !config.NewDateFilter(weekdays, nil, nil).Allows(d) {
-		out = append(out, fmt.Sprintf("feed %q: %s: %s is a %s, not in its weekdays (%s): it will never be published",
-			feedID, entry, d.Format(time.DateOnly), d.Weekday(), strings.Join(weekdays, ", ")))
+		out = append(out, fmt.Sprintf("%s is a %s, not in its weekdays (%s): it will never be published",
+			d.Format(time.DateOnly), d.Weekday(), strings.Join(weekdays, ", ")))
 	}
 	return out
 }

@@ -128,6 +128,32 @@ feeds:
 	wantWarnings(t, r.Warnings, want)
 }
 
+// Kinds entries sharing one dates list (a YAML anchor) and one filter get
+// one warning per date naming them together, not one per entry: 12 and 19
+// June 2027 are Saturdays (timeanddate.com's 2027 calendar). An entry
+// leaving a date out by other weekdays is warned of on its own line.
+func TestDatesFilteredOutSharedListOnce(t *testing.T) {
+	r := checkReportOf(t, `sites:
+  - {id: venue, latitude: 47.5, longitude: 9.7, timezone: Europe/Zurich}
+feeds:
+  - id: weddings
+    site: venue
+    days_ahead: 400
+    kinds:
+      - {kind: sunset, dates: &day [2027-06-12, 2027-06-19], weekdays: [sun]}
+      - {kind: golden-hour, dates: *day, weekdays: [sun]}
+      - {kind: blue-hour, dates: *day, weekdays: [sun]}
+      - {kind: civil-dusk, dates: *day, weekdays: [fri]}
+`, windowNow)
+	want := []string{
+		`feed "weddings": sunset, golden-hour and blue-hour: 2027-06-12 is a Saturday, not in its weekdays (sun): it will never be published`,
+		`feed "weddings": sunset, golden-hour and blue-hour: 2027-06-19 is a Saturday, not in its weekdays (sun): it will never be published`,
+		`feed "weddings": civil-dusk: 2027-06-12 is a Saturday, not in its weekdays (fri): it will never be published`,
+		`feed "weddings": civil-dusk: 2027-06-19 is a Saturday, not in its weekdays (fri): it will never be published`,
+	}
+	wantWarnings(t, r.Warnings, want)
+}
+
 // A listed date that the entry's own weekdays leave out is only that
 // warning, never also "before the window's start" or a note that it "will
 // be published" once the window reaches it: 13 June 2026 and 17 June 2028

@@ -113,6 +113,16 @@ type checkSite struct {
 	sitePlace
 	// SkylineFile is the CSV file the skyline was read from.
 	SkylineFile string `json:"skyline_file,omitempty"`
+	siteHorizon
+	TimeZone         string `json:"timezone"`
+	TimeZoneInferred bool   `json:"timezone_inferred"`
+}
+
+// siteHorizon says which horizon rise and set at a site are taken over, as
+// the JSON of check and of events give it: "horizon_deg": 0 alone is both
+// the level horizon written 0 and the flat one an elevation lowers by its
+// dip.
+type siteHorizon struct {
 	// HorizonSet is true when the horizon is one altitude as written, 0
 	// included (a level horizon): rise and set are taken over it, with no
 	// dip.
@@ -120,9 +130,11 @@ type checkSite struct {
 	// Dip is the dip of the horizon in degrees that lowers the flat horizon
 	// rise and set are taken over (no horizon written, elevation above 0;
 	// with a skyline, its points at 0°), to a thousandth; 0 when none does.
-	Dip              float64 `json:"dip_deg"`
-	TimeZone         string  `json:"timezone"`
-	TimeZoneInferred bool    `json:"timezone_inferred"`
+	Dip float64 `json:"dip_deg"`
+}
+
+func horizonOf(s *config.Site) siteHorizon {
+	return siteHorizon{HorizonSet: s.OwnHorizon(), Dip: dipOf(s)}
 }
 
 // horizonText is a site's horizon in the table: "0°", "1.5°", "−0.8°",
@@ -280,7 +292,7 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 		Sites: []checkSite{}, Feeds: []checkFeed{}, Warnings: []string{}, Notes: []string{}}
 	for _, s := range cfg.Sites {
 		r.Sites = append(r.Sites, checkSite{ID: s.ID, sitePlace: placeOf(&s), SkylineFile: s.HorizonFile,
-			HorizonSet: s.OwnHorizon(), Dip: dipOf(&s), TimeZone: s.TimeZone.Name(), TimeZoneInferred: s.ZoneInferred})
+			siteHorizon: horizonOf(&s), TimeZone: s.TimeZone.Name(), TimeZoneInferred: s.ZoneInferred})
 	}
 	zoneLines := zoneNotes(cfg, now)
 	limit := cfg.Service.MaxFeedBytes

@@ -466,19 +466,15 @@ func placeOf(s *config.Site) sitePlace {
 
 type jsonSite struct {
 	sitePlace
-	// HorizonSet and Dip say which horizon rise and set are taken over, as
-	// check's JSON does (checkSite): "horizon_deg": 0 alone is the level
-	// horizon written 0 and the flat one an elevation lowers by its dip.
-	HorizonSet bool    `json:"horizon_set"`
-	Dip        float64 `json:"dip_deg"`
-	TimeZone   string  `json:"timezone"`
-	From       string  `json:"from"`
-	To         string  `json:"to"`
+	siteHorizon
+	TimeZone string `json:"timezone"`
+	From     string `json:"from"`
+	To       string `json:"to"`
 }
 
 // siteJSON is the site of a listing of the dates from..to.
 func siteJSON(s *config.Site, from, to time.Time) jsonSite {
-	return jsonSite{sitePlace: placeOf(s), HorizonSet: s.OwnHorizon(), Dip: dipOf(s), TimeZone: s.TimeZone.String(),
+	return jsonSite{sitePlace: placeOf(s), siteHorizon: horizonOf(s), TimeZone: s.TimeZone.String(),
 		From: from.Format(time.DateOnly), To: to.Format(time.DateOnly)}
 }
 

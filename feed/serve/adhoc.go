@@ -97,12 +97,15 @@ func (q AdhocQuery) String() string {
 }
 
 // place is everything but the window.
-func (q AdhocQuery) place() string {
+func (q AdhocQuery) place() string { return q.placeWithZone(q.Location.String()) }
+
+// placeWithZone is place with the zone's name written as tz.
+func (q AdhocQuery) placeWithZone(tz string) string {
 	var b strings.Builder
 	b.WriteString(ParamLatitude + "=" + strconv.FormatFloat(q.Latitude, 'f', -1, 64))
 	b.WriteString("&" + ParamLongitude + "=" + strconv.FormatFloat(q.Longitude, 'f', -1, 64))
 	b.WriteString("&" + ParamElevation + "=" + strconv.FormatFloat(q.Elevation, 'f', -1, 64))
-	b.WriteString("&" + ParamZone + "=" + q.Location.String())
+	b.WriteString("&" + ParamZone + "=" + tz)
 	b.WriteString("&" + ParamKinds + "=" + strings.Join(q.Kinds, ","))
 	b.WriteString("&" + ParamUTC + "=" + strconv.FormatBool(q.UTC))
 	if q.Name != "" {
@@ -132,12 +135,7 @@ var zoneInLink = strings.NewReplacer("%", "%25", "+", "%2B", "&", "%26", "#", "%
 // itself, the cache key and the source of ID (and so of the entries'
 // UIDs), keeps the name as it is.
 func (q AdhocQuery) linkPlace() string {
-	p := q.place()
-	tz := q.Location.String()
-	if esc := zoneInLink.Replace(tz); esc != tz {
-		p = strings.Replace(p, "&"+ParamZone+"="+tz+"&", "&"+ParamZone+"="+esc+"&", 1)
-	}
-	return p
+	return q.placeWithZone(zoneInLink.Replace(q.Location.String()))
 }
 
 // ID is a short identifier of the place, zone and kinds (not of the window,

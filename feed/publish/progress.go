@@ -185,12 +185,20 @@ const EachWarned = 3
 // EachWarned each in OversizeWarning's words, then OversizeMore for the
 // rest, if any.
 func OversizeWarnings(feeds []FeedInfo, limit int) []string {
+	return eachThenMore(feeds,
+		func(f FeedInfo) string { return OversizeWarning(f.ID, f.Bytes, limit) },
+		func(rest []FeedInfo) string { return OversizeMore(rest, limit) })
+}
+
+// eachThenMore is a line each (one) for the first EachWarned of items,
+// then one line (more) for the rest, if any.
+func eachThenMore[T any](items []T, one func(T) string, more func([]T) string) []string {
 	var out []string
-	for i, f := range feeds {
+	for i, it := range items {
 		if i == EachWarned {
-			return append(out, OversizeMore(feeds[i:], limit))
+			return append(out, more(items[i:]))
 		}
-		out = append(out, OversizeWarning(f.ID, f.Bytes, limit))
+		out = append(out, one(it))
 	}
 	return out
 }
@@ -219,14 +227,9 @@ func OversizeMore(feeds []FeedInfo, limit int) string {
 // (service.oversize: trim), in the configuration's order: the first
 // EachWarned each in TrimNote's words, then TrimMore for the rest, if any.
 func TrimNotes(ts []Trimmed, limit int) []string {
-	var out []string
-	for i, t := range ts {
-		if i == EachWarned {
-			return append(out, TrimMore(ts[i:], limit))
-		}
-		out = append(out, TrimNote(t, limit))
-	}
-	return out
+	return eachThenMore(ts,
+		func(t Trimmed) string { return TrimNote(t, limit) },
+		func(rest []Trimmed) string { return TrimMore(rest, limit) })
 }
 
 // TrimMore names together the feeds shortened to stay under limit after

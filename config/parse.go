@@ -1996,14 +1996,24 @@ func kindParamHint(settings map[string]any, path, format string) string {
 	if err != nil {
 		return ""
 	}
-	written := "kind: " + k.String()
+	kind := k.String()
+	if format == "toml" || format == "json" {
+		kind = strconv.Quote(kind) // text, in quotes
+	}
+	return fmt.Sprintf("a %s entry takes its %s in the kind: write %s and leave %s out", base, what, keyWritten(format, "kind", kind), key)
+}
+
+// keyWritten is key with its value as format writes them ("yaml", "toml"
+// or "json"; YAML for another): "horizon: 2", "horizon = 2", `"horizon":
+// 2`. value is written as given, in quotes when it is text in TOML or JSON.
+func keyWritten(format, key, value string) string {
 	switch format {
 	case "toml":
-		written = fmt.Sprintf("kind = %q", k.String())
+		return key + " = " + value
 	case "json":
-		written = fmt.Sprintf(`"kind": %q`, k.String())
+		return strconv.Quote(key) + ": " + value
 	}
-	return fmt.Sprintf("a %s entry takes its %s in the kind: write %s and leave %s out", base, what, written, key)
+	return key + ": " + value
 }
 
 // cutLast splits a decoder path at its last key: "feeds[0].kinds[1]" and

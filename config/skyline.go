@@ -46,10 +46,7 @@ func (s *Site) resolveHorizon(path, dir, format string) []FieldError {
 				hint = "a relative name is read from the configuration file's directory; " + hint
 			}
 			if n := altitudeText(v); n != "" { // "2°", or "2" in quotes
-				written := map[string]string{"toml": "horizon = " + n, "json": `"horizon": ` + n}[format]
-				if written == "" {
-					written = "horizon: " + n
-				}
+				written := keyWritten(format, "horizon", n)
 				if strings.HasPrefix(path, "--") {
 					written = path + " " + n // a flag: "--horizon 2"
 				}

@@ -1,7 +1,6 @@
 package feed
 
 import (
-	"bytes"
 	"fmt"
 	"math"
 	"strings"
@@ -926,9 +925,11 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		b := append(dst, lampLeads[pi]...)
 		b = append(b, byte('0'+on.h/10), byte('0'+on.h%10), ':', byte('0'+on.m/10), byte('0'+on.m%10), ':', byte('0'+on.s/10), byte('0'+on.s%10), ' ')
 		b = append(b, on.zone...)
+		said := false // a limit the clocks move, said with the change
 		if l.Clipped && pi == 0 && on.second() != lt.onSec {
 			if m := movedLimit(s.zone, e.Start, lt.on); m != "" {
 				b = append(append(append(b, " ("...), m...), ')')
+				said = true
 			}
 		}
 		b = append(b, ',', ' ', 'o', 'f', 'f', ' ', 'a', 't', ' ',
@@ -938,12 +939,13 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		if l.Clipped && pi == 1 && off.second() != lt.offSec {
 			if m := movedLimit(s.zone, e.End, lt.off); m != "" {
 				b = append(append(b, "; off "...), m...)
+				said = true
 			}
 		}
 		if lt.both != nil {
 			b = lt.appendOtherLamps(b, s, e, pi)
 		}
-		b = appendTail(b, len(dst), lt.open, on, off, e, s.zone)
+		b = appendTail(b, said, lt.open, on, off, e, s.zone)
 		return append(appendHM(b, e.DayLength), lt.tail[pi][b2i(l.Clipped)][b2i(l.Short)]...), t, row
 	}
 	whole := e.Part == partPolarNight || e.Part == partBehindSkyline // one period round solar noon
@@ -959,9 +961,11 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		b = append(b, "Evening lamps on at "...)
 	}
 	b = on.appendSecond(b)
+	said := false // as above
 	if l.Clipped && e.Part != partEvening && lt.onSec >= 0 && on.second() != lt.onSec {
 		if m := movedLimit(s.zone, e.Start, lt.on); m != "" {
 			b = append(append(append(b, " ("...), m...), ')')
+			said = true
 		}
 	}
 	b = s.zone.appendDayMark(off.appendSecond(append(b, ", off at "...)), e.End, e.Date)
@@ -969,6 +973,7 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	if l.Clipped && e.Part != partMorning && lt.offSec >= 0 && off.second() != lt.offSec {
 		if m := movedLimit(s.zone, e.End, lt.off); m != "" {
 			b = append(append(b, "; off "...), m...) // as the text above words it
+			said = true
 		}
 	}
 	if lt.both != nil {
@@ -976,11 +981,11 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	}
 	switch {
 	case whole && l.Clipped:
-		b = appendTail(b, len(dst), lt.near, on, off, e, s.zone)
+		b = appendTail(b, said, lt.near, on, off, e, s.zone)
 	case whole:
-		b = appendTail(b, len(dst), lt.centred, on, off, e, s.zone)
+		b = appendTail(b, said, lt.centred, on, off, e, s.zone)
 	default:
-		b = appendTail(b, len(dst), lt.open, on, off, e, s.zone)
+		b = appendTail(b, said, lt.open, on, off, e, s.zone)
 	}
 	b = append(appendHM(b, e.DayLength), lt.goal...)
 	other := otherPart(e.Part)
@@ -1027,12 +1032,12 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 // further apart than its length, "23:35:35 BST, off at 06:59:17 GMT (8 h
 // 24 min). The clocks go back from summer time by 1 h during it: 02:00 BST
 // becomes 01:00 GMT." Nearly every period has one zone's label at both
-// ends, and nothing more to look up. The text from b[from:] on, the
-// period's so far, may have said it already, beside a limit the clocks
-// skip ("off moved from 00:30, which the clocks skip …: the clocks go
-// forward …"): then it is not said twice.
-func appendTail(b []byte, from int, tail string, on, off shownClock, e *Event, z *zoneCache) []byte {
-	if on.zone == off.zone || bytes.Contains(b[from:], []byte("the clocks ")) {
+// ends, and nothing more to look up. said is true when the period's text
+// has said the change already, beside a limit the clocks move (movedLimit:
+// "off moved from 00:30, which the clocks skip …: the clocks go forward
+// …"): then it is not said twice.
+func appendTail(b []byte, said bool, tail string, on, off shownClock, e *Event, z *zoneCache) []byte {
+	if on.zone == off.zone || said {
 		return append(b, tail...)
 	}
 	i := strings.Index(tail, ".\n") + 1

@@ -789,25 +789,33 @@ func TestDarkWindowAcrossClockChange(t *testing.T) {
 			"Dark sky on the night of 2–3 October 2027 from 20:58:56 AEST to 05:26:03 AEDT +1 day (7 h 27 min). " +
 				"The clocks go forward for summer time by 1 h during it: 02:00 AEST becomes 03:00 AEDT."},
 	} {
-		sk := sky(t, c.first, c.last)
-		es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{{Kind: mustKinds(t, "dark-window")[0]}}, date(c.first), date(c.last))
-		if err != nil {
-			t.Fatal(err)
-		}
-		found := false
-		for _, e := range es {
-			if e.Date.Format(time.DateOnly) == c.night {
-				found = true
-				if e.Description != c.want {
-					t.Errorf("night of %s:\n got %q\nwant %q", c.night, e.Description, c.want)
-				}
-			} else if strings.Contains(e.Description, "clocks") {
-				t.Errorf("night of %s, without a change of the clocks: %q", e.Date.Format(time.DateOnly), e.Description)
+		checkClocksSaidOn(t, s, config.KindSpec{Kind: mustKinds(t, "dark-window")[0]}, c.first, c.last, c.night, c.want)
+	}
+}
+
+// checkClocksSaidOn checks that spec's entry of the date day, among those
+// of first..last, has the description want, and that no other entry
+// speaks of the clocks.
+func checkClocksSaidOn(t *testing.T, s *config.Site, spec config.KindSpec, first, last, day, want string) {
+	t.Helper()
+	sk := sky(t, first, last)
+	es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date(first), date(last))
+	if err != nil {
+		t.Fatal(err)
+	}
+	found := false
+	for _, e := range es {
+		if e.Date.Format(time.DateOnly) == day {
+			found = true
+			if e.Description != want {
+				t.Errorf("%s %s:\n got %q\nwant %q", spec.Kind, day, e.Description, want)
 			}
+		} else if strings.Contains(e.Description, "clocks") {
+			t.Errorf("%s %s, without a change of the clocks: %q", spec.Kind, e.Date.Format(time.DateOnly), e.Description)
 		}
-		if !found {
-			t.Errorf("no dark window on the night of %s in %d entries", c.night, len(es))
-		}
+	}
+	if !found {
+		t.Errorf("no %s entry on %s in %d entries", spec.Kind, day, len(es))
 	}
 }
 
@@ -832,24 +840,6 @@ func TestLampPeriodAcrossClockChange(t *testing.T) {
 			"Morning lamps on at 00:31:19 GMT, off at 06:48:26 BST (5 h 17 min). " +
 				"The clocks go forward for summer time by 1 h during it: 01:00 GMT becomes 02:00 BST.\nNatural day 12 h 43 min; target 18 h."},
 	} {
-		sk := sky(t, c.first, c.last)
-		es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date(c.first), date(c.last))
-		if err != nil {
-			t.Fatal(err)
-		}
-		found := false
-		for _, e := range es {
-			if e.Date.Format(time.DateOnly) == c.day {
-				found = true
-				if e.Description != c.want {
-					t.Errorf("%s:\n got %q\nwant %q", c.day, e.Description, c.want)
-				}
-			} else if strings.Contains(e.Description, "clocks") {
-				t.Errorf("%s, without a change of the clocks: %q", e.Date.Format(time.DateOnly), e.Description)
-			}
-		}
-		if !found {
-			t.Errorf("no lamp period on %s in %d entries", c.day, len(es))
-		}
+		checkClocksSaidOn(t, s, spec, c.first, c.last, c.day, c.want)
 	}
 }

@@ -11,6 +11,21 @@ import (
 	"heliocal/config"
 )
 
+// planCalendar returns f's calendar of first..last at s, its sky wide
+// enough for the plans (PlanMargin).
+func planCalendar(t *testing.T, s *config.Site, f *config.Feed, first, last time.Time) *Calendar {
+	t.Helper()
+	sk, err := NewSky(first.AddDate(0, 0, -PlanMargin), last.AddDate(0, 0, PlanMargin))
+	if err != nil {
+		t.Fatal(err)
+	}
+	cal, err := sk.Calendar(context.Background(), s, f, first, last, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return cal
+}
+
 // TestDateTheClocksSkip: Pacific/Apia's clocks went from 23:59:59 on 29
 // December 2011 (UTC−10) to 00:00 on 31 December (UTC+14) (zdump -v
 // Pacific/Apia), so 30 December 2011 has no instant there. A feed lists
@@ -36,15 +51,7 @@ func TestDateTheClocksSkip(t *testing.T) {
 	f := &config.Feed{ID: "apia", Site: s.ID, Kinds: specs, Plans: []config.Plan{
 		{Title: "Morning round", Date: "every day", Start: "06:30", For: config.Duration(time.Hour)},
 	}}
-	first, last := date("2011-12-28"), date("2012-01-01")
-	sk, err := NewSky(first.AddDate(0, 0, -PlanMargin), last.AddDate(0, 0, PlanMargin))
-	if err != nil {
-		t.Fatal(err)
-	}
-	cal, err := sk.Calendar(context.Background(), s, f, first, last, Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
+	cal := planCalendar(t, s, f, date("2011-12-28"), date("2012-01-01"))
 	count := map[string]int{}
 	var night29 []Entry
 	for _, e := range cal.Entries {
@@ -200,15 +207,7 @@ func TestFeedOverJumpsBackAndForward(t *testing.T) {
 		s := site(t, "atoll", tc.lat, tc.lon, tc.zone)
 		f := &config.Feed{ID: "atoll", Site: s.ID, Kinds: []config.KindSpec{{Kind: mustKinds(t, "daily-summary")[0]}},
 			Plans: []config.Plan{{Title: "Morning round", Date: "every day", Start: "06:30", For: config.Duration(time.Hour)}}}
-		first, last := date(tc.first), date(tc.last)
-		sk, err := NewSky(first.AddDate(0, 0, -PlanMargin), last.AddDate(0, 0, PlanMargin))
-		if err != nil {
-			t.Fatal(err)
-		}
-		cal, err := sk.Calendar(context.Background(), s, f, first, last, Options{})
-		if err != nil {
-			t.Fatal(err)
-		}
+		cal := planCalendar(t, s, f, date(tc.first), date(tc.last))
 		count := map[string]int{}
 		for _, e := range cal.Entries {
 			day := e.Date.Format(time.DateOnly)

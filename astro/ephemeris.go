@@ -115,7 +115,7 @@ func (o Observer) Validate() error {
 // sunrise and sunset for this observer, in degrees:
 //
 //   - Horizon == 0: SunriseAltitude (−0.8333°) lowered by the dip of the
-//     horizon 1.76′·√Elevation (Dip; Elevation in metres, ignored when ≤ 0);
+//     horizon 1.76′·√Elevation (Dip; Elevation in metres, none when ≤ 0);
 //   - Horizon != 0: the upper limb touches the skyline at apparent altitude
 //     Horizon, so the centre's geometric altitude is Horizon − R − 16′, R
 //     being the standard refraction at apparent altitude Horizon (Bennett's
@@ -131,10 +131,7 @@ func (o Observer) RiseSetAltitude() float64 {
 		if f != 1 {
 			h = -34.0/60*f - 16.0/60
 		}
-		if o.Elevation <= 0 {
-			return h
-		}
-		return h - 1.76/60*math.Sqrt(o.Elevation) // Dip
+		return h - Dip(o.Elevation)
 	}
 	r, _ := bennett(max(o.Horizon, bennettMinAltitude)) // arcminutes
 	return o.Horizon - r*f/60 - 16.0/60

@@ -1190,22 +1190,28 @@ func TestNotReachedTextNearThreshold(t *testing.T) {
 // centre is above −6° from 07:34:53 to 15:20:26 UTC (PyEphem, use_center):
 // 08:35 to 16:20 CET as the summary shows them, 7 h 45 min.
 func TestSummaryTitlePolarNight(t *testing.T) {
-	s := site(t, "polar-shed", 78.92, 11.93, "Arctic/Longyearbyen")
 	sk := sky(t, "2027-01-01", "2027-12-31")
-	specs := []config.KindSpec{{Kind: mustKinds(t, "daily-summary")[0]}}
 	for _, tc := range []struct{ date, title string }{
 		{"2027-12-21", "Polar night: the Sun stays below the horizon"},
 		{"2027-02-17", "Polar night: civil twilight 7 h 45 min"},
 		{"2027-06-21", "Daylight 24 h"},
 	} {
-		es, err := sk.Entries(context.Background(), s, "f", specs, date(tc.date), date(tc.date))
-		if err != nil {
-			t.Fatal(err)
-		}
-		if len(es) != 1 || es[0].Title != tc.title {
+		if es := polarShedSummary(t, sk, tc.date); len(es) != 1 || es[0].Title != tc.title {
 			t.Errorf("%s: %+v, want the title %q", tc.date, es, tc.title)
 		}
 	}
+}
+
+// polarShedSummary returns sk's daily summaries of the local date day
+// (YYYY-MM-DD) at 78.92° N, 11.93° E (Arctic/Longyearbyen).
+func polarShedSummary(t *testing.T, sk *Sky, day string) []Entry {
+	t.Helper()
+	s := site(t, "polar-shed", 78.92, 11.93, "Arctic/Longyearbyen")
+	es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{{Kind: mustKinds(t, "daily-summary")[0]}}, date(day), date(day))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return es
 }
 
 // TestSummarySameDayLength checks that a daily summary of polar night or
@@ -1215,20 +1221,14 @@ func TestSummaryTitlePolarNight(t *testing.T) {
 // (PyEphem 4.1.4, pressure 0, upper limb at −34′: NeverUpError and
 // AlwaysUpError).
 func TestSummarySameDayLength(t *testing.T) {
-	s := site(t, "polar-shed", 78.92, 11.93, "Arctic/Longyearbyen")
 	sk := sky(t, "2027-01-01", "2027-12-31")
-	specs := []config.KindSpec{{Kind: mustKinds(t, "daily-summary")[0]}}
 	for _, tc := range []struct{ date, want string }{
 		{"2027-12-21", "Polar night: the Sun does not rise today.\n" +
 			"No civil twilight today: the Sun stays more than 6° below the horizon.\n" +
 			"Day length 0 min, the same as the day before."},
 		{"2027-06-21", "Midnight sun: the Sun does not set today.\nDay length 24 h, the same as the day before."},
 	} {
-		es, err := sk.Entries(context.Background(), s, "f", specs, date(tc.date), date(tc.date))
-		if err != nil {
-			t.Fatal(err)
-		}
-		if len(es) != 1 || es[0].Description != tc.want {
+		if es := polarShedSummary(t, sk, tc.date); len(es) != 1 || es[0].Description != tc.want {
 			t.Errorf("%s: %+v, want the description %q", tc.date, es, tc.want)
 		}
 	}

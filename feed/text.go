@@ -40,7 +40,7 @@ func localClock(t time.Time, loc *time.Location) string { return LocalClock(ToSe
 // it (its second). The iCalendar writer writes such a time in UTC, and the
 // served tables write its zone's label beside it.
 func ShownTwice(t time.Time) bool {
-	start, end := t.ZoneBounds()
+	start, end := astro.ZonePeriod(t) // its end after t past the zone data's last transition too
 	_, off := t.Zone()
 	if !end.IsZero() {
 		_, next := end.Zone()

@@ -110,6 +110,7 @@ func index(parent string, i int) string { return fmt.Sprintf("%s[%d]", parent, i
 func (d *dupFinder) json(data []byte) {
 	dec := json.NewDecoder(bytes.NewReader(data))
 	dec.UseNumber()
+	lines := lineCursor{data: data, line: 1}
 	var walk func(path string) bool
 	walk = func(path string) bool {
 		tok, err := dec.Token()
@@ -125,8 +126,8 @@ func (d *dupFinder) json(data []byte) {
 				}
 				k, _ := kt.(string)
 				end := int(dec.InputOffset()) // just after the key's closing quote
-				line := bytes.Count(data[:end], []byte("\n")) + 1
-				col := end - bytes.LastIndexByte(data[:end], '\n') - len(strconv.Quote(k)) // the opening quote, for plain keys
+				line, start := lines.at(end)
+				col := end - start + 1 - len(strconv.Quote(k)) // the opening quote, for plain keys
 				if !walk(d.key(path, k, line, max(col, 1))) {
 					return false
 				}
@@ -140,8 +141,8 @@ func (d *dupFinder) json(data []byte) {
 				for at < len(data) && bytes.IndexByte([]byte(" \t\r\n,"), data[at]) >= 0 {
 					at++
 				}
-				line := bytes.Count(data[:at], []byte("\n")) + 1
-				d.seen[item] = keyPlace{line: line, col: at - bytes.LastIndexByte(data[:at], '\n')}
+				line, start := lines.at(at)
+				d.seen[item] = keyPlace{line: line, col: at - start + 1}
 				if !walk(item) {
 					return false
 				}
@@ -153,6 +154,36 @@ func (d *dupFinder) json(data []byte) {
 		return err == nil
 	}
 	walk("")
+}
+
+// lineCursor gives the line of offsets into data taken in increasing
+// order, as a decoder reads them, counting each line break once: the
+// count from the start for every key and item was quadratic in the size
+// of the file.
+type lineCursor struct {
+	data  []byte
+	off   int // the offset the line breaks are counted up to
+	line  int // the line of off, from 1
+	start int // the offset of that line's first byte
+}
+
+// at is the line of the byte at offset off of data (from 1) and the
+// offset of that line's first byte.
+func (c *lineCursor) at(off int) (line, start int) {
+	if off < c.off { // back: counted again from the start
+		c.off, c.line, c.start = 0, 1, 0
+	}
+	for {
+		i := bytes.IndexByte(c.data[c.off:off], '\n')
+		if i < 0 {
+			break
+		}
+		c.line++
+		c.start = c.off + i + 1
+		c.off = c.start
+	}
+	c.off = off
+	return c.line, c.start
 }
 
 func (d *dupFinder) yaml(data []byte) {

@@ -1,6 +1,7 @@
 package config
 
 import (
+	"bytes"
 	"fmt"
 	"os"
 	"path/filepath"
@@ -259,6 +260,21 @@ func TestNumberWrittenWithLeadingZero(t *testing.T) {
 		if c.Sites[0].Elevation != tc.m || c.Feeds[0].DaysAhead != tc.d {
 			t.Errorf("elevation %s, days_ahead %s read as %v m and %d days, want %v and %d",
 				tc.elevation, tc.days, c.Sites[0].Elevation, c.Feeds[0].DaysAhead, tc.m, tc.d)
+		}
+	}
+}
+
+// lineCursor gives the line and the line's start that counting the line
+// breaks before each offset gives, for offsets taken forwards and back.
+func TestLineCursor(t *testing.T) {
+	data := []byte("{\n  \"sites\": [\n\n    {\"id\": \"a\"}\r\n  ]\n}")
+	c := lineCursor{data: data, line: 1}
+	for _, off := range []int{0, 1, 2, 5, 15, 16, 20, 33, 15, 3, len(data)} {
+		line, start := c.at(off)
+		wantLine := bytes.Count(data[:off], []byte("\n")) + 1
+		wantStart := bytes.LastIndexByte(data[:off], '\n') + 1
+		if line != wantLine || start != wantStart {
+			t.Errorf("offset %d: line %d from %d, want line %d from %d", off, line, start, wantLine, wantStart)
 		}
 	}
 }

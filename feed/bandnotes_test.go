@@ -11,7 +11,7 @@ import (
 // A sun band's all-day entries name the band as its spans' titles do
 // ("Sun between −3° and +3°"), not in other figures ("−3.0°", "3.0°"). At
 // 78.2° N, 15.6° E (Arctic/Longyearbyen) the Sun stays below −3° all of 1
-// January 2027 (PyEphem 4.1, Observer 78.2° 15.6°, pressure 0, sampled every
+// January 2027 (PyEphem 4.1.4, Observer 78.2° 15.6°, pressure 0, sampled every
 // minute of the local date: at most −11.20°) and above +3° all of 1 May
 // 2027 (at least +3.13°); on 29 April 2027 no span begins, the one of the
 // 28th lasting into it (the table's "no event on this date").

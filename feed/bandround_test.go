@@ -15,7 +15,7 @@ import (
 // 78.2° N, 15.6° E (sea level, Arctic/Longyearbyen) on the night of 10–11
 // May 2027 the Sun's centre dips to 5.9537° at 22:53 UT, so "at least 6.0°"
 // would contradict the golden hour it is in.
-// Source: PyEphem 4.1 (Observer 78.2, 15.6, pressure 0, the Sun's altitude
+// Source: PyEphem 4.1.4 (Observer 78.2, 15.6, pressure 0, the Sun's altitude
 // minute by minute): lowest 5.9537° at 2027-05-10 22:53 UT.
 func TestBandExtremeStaysInsideBand(t *testing.T) {
 	s := site(t, "isfjord", 78.2, 15.6, "Arctic/Longyearbyen")

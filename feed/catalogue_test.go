@@ -1121,7 +1121,7 @@ func TestPolarNightOrBehindSkyline(t *testing.T) {
 // in one", golden hour's name for the span of a winter Sun that never
 // climbs out of it (at 69.65° N, 18.96° E on 20 January 2027 the Sun's
 // centre at its transit, 10:55 UT, is 0.23° high geometrically, 0.67° with
-// refraction: PyEphem 4.1, next_transit with pressure 0 and 1010 hPa).
+// refraction: PyEphem 4.1.4, next_transit with pressure 0 and 1010 hPa).
 func TestBandThroughMidday(t *testing.T) {
 	s := site(t, "havana", 23.13, -82.38, "America/Havana")
 	sk := sky(t, "2027-03-14", "2027-03-14")

@@ -522,7 +522,7 @@ func TestSunsetEndingMidnightSun(t *testing.T) {
 // A civil dusk after midnight that ends the twilight of the day before is
 // marked in the daily summary as a sunset after midnight is: at 59.9° N,
 // 10.75° E (Europe/Oslo, CEST = UT + 2 h, tz database) the civil dusks of
-// 6 June and 8 July 2027 pass midnight (PyEphem 3.7, Sun's centre at −6°,
+// 6 June and 8 July 2027 pass midnight (PyEphem 4.1.4, Sun's centre at −6°,
 // pressure 0, sea level: 2027-06-06 22:01:07 UT, 2027-07-08 22:00:20 UT,
 // then 2027-07-09 21:57:38 UT, the evening's own).
 func TestSummaryMarksCivilDuskAfterMidnight(t *testing.T) {
@@ -642,7 +642,7 @@ func TestDirectSunEndOfMidnightSun(t *testing.T) {
 // the sunset behind the skyline and says the Sun stays above the flat
 // horizon, not "the Sun does not set". At 78.2° N, 15.6° E the Sun is at
 // its lowest near 23:00 UTC on 10 May 2027, 5.96° up at azimuth 1.4°
-// (PyEphem 4.1, geometric: 5°57'31"), under hills of 8° in the north and
+// (PyEphem 4.1.4, geometric: 5°57'31"), under hills of 8° in the north and
 // over the flat horizon.
 func TestSkylineSummaryTwilightNote(t *testing.T) {
 	s := site(t, "isfjell-hut", 78.2, 15.6, "Arctic/Longyearbyen")

@@ -15,7 +15,7 @@ import (
 // level, Pacific/Auckland) the window of the night of 1–2 January 2027 runs
 // from astronomical dusk to moonrise, when the waning Moon is 33 % lit;
 // "20 % lit" (the limit) beside it would be untrue.
-// Source: PyEphem 4.1 (Observer at -45.0, 170.5, pressure 0, horizon -34′,
+// Source: PyEphem 4.1.4 (Observer at -45.0, 170.5, pressure 0, horizon -34′,
 // upper limb): astronomical dusk 2027-01-01 10:57:37 UTC, moonrise
 // 2027-01-01 12:35:30 UTC, moon_phase 0.3277.
 func TestDarkWindowCarriesNoLimitAsLight(t *testing.T) {
@@ -48,7 +48,7 @@ func TestDarkWindowCarriesNoLimitAsLight(t *testing.T) {
 // through the astronomical night. At 45° S, 170.5° E (sea level) on the
 // night of 21–22 January 2027 astronomical dusk falls at 10:32:16 UT and
 // dawn at 15:06:35 UT, between moonrise at 07:35:38 and moonset at
-// 16:09:59 UT, the Moon 98 % lit. Source: PyEphem 4.1 (pressure 0,
+// 16:09:59 UT, the Moon 98 % lit. Source: PyEphem 4.1.4 (pressure 0,
 // horizon −18° for the Sun's centre, −34′ for the Moon's upper limb).
 func TestDarkWindowMoonlitNote(t *testing.T) {
 	s := site(t, "south-45", -45, 170.5, "Pacific/Auckland")

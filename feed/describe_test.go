@@ -435,7 +435,7 @@ func TestMoonMeaningsAndNotesOncePerCalendar(t *testing.T) {
 // feed's thresholds in one line), and each entry keeps its own numbers.
 // At 48.2° N, 16.4° E (Europe/Vienna) day length first reaches 12 h on
 // 18 March 2027 (12 h 01 min; 11 h 58 min on the 17th) and the Sun reaches
-// ecliptic longitude 315° on 4 February 2027. Sources: PyEphem 4.1 sunrise
+// ecliptic longitude 315° on 4 February 2027. Sources: PyEphem 4.1.4 sunrise
 // and sunset (pressure 0, horizon −34′, upper limb) for the day lengths;
 // PyEphem's solar longitude for the cross-quarter date (01:43 UT; the
 // date is what is checked here).
@@ -489,7 +489,7 @@ func TestThresholdsAndCrossQuarterMeanOnce(t *testing.T) {
 // one-year table 'Rise and Set for the Sun', N80 00 / 000 00, 2015. Its
 // centre culminates about 0.6° below the horizon on 21 February and 13.4°
 // below it on 21 December (90° − 80° less the declination, −10.57° and
-// −23.43° by PyEphem 4.1).
+// −23.43° by PyEphem 4.1.4).
 func TestSolarNoonOnTheHorizon(t *testing.T) {
 	s := site(t, "usno-80n", 80, 0, "UTC")
 	for _, tc := range []struct {

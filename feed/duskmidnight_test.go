@@ -15,7 +15,7 @@ import (
 // may come after midnight, on the next date (the date's note then says so,
 // state Crosses, with that dusk), or there may be none that night although
 // the date has a dawn after midnight (the night's note: twilight lasts all
-// night). Every instant is PyEphem 4.1's (Sun's centre, pressure 0, horizon
+// night). Every instant is PyEphem 4.1.4's (Sun's centre, pressure 0, horizon
 // −18° or −12°, next_setting/next_rising with use_center=True, the site's
 // elevation); the crossings at these edges are grazing, so an instant is
 // held to 1 s.
@@ -173,7 +173,7 @@ func notesOf(t *testing.T, s *config.Site, kind, first, last string) []Note {
 // after nights without a dawn, whose own evening has its dusk after
 // midnight, it says that twilight lasted all last night and when this
 // evening's dusk comes, not that it "lasts all night" tonight; the dates
-// before keep the shared note. Instants from PyEphem 4.1 as in
+// before keep the shared note. Instants from PyEphem 4.1.4 as in
 // TestDuskNoteFollowsTheEvening.
 func TestDawnNoteSpeaksOfLastNight(t *testing.T) {
 	s := site(t, "tromso", 69.65, 18.95, "Europe/Oslo")
@@ -210,7 +210,7 @@ func TestDawnNoteSpeaksOfLastNight(t *testing.T) {
 
 // A date whose only crossing is a dawn, its evening's dusk coming after
 // midnight, says when that dusk comes as the date without any crossing
-// does. At 69.65° N, 18.95° E, 120 m on 10 April 2027 (PyEphem 4.1, Sun's
+// does. At 69.65° N, 18.95° E, 120 m on 10 April 2027 (PyEphem 4.1.4, Sun's
 // centre, pressure 0, horizon −12°): nautical dusk 2027-04-09 21:49:40 UT
 // (the evening before, 23:49:40 CEST), dawn 2027-04-09 23:40:26 UT (01:40:26
 // CEST on the 10th), the evening's dusk 2027-04-10 22:11:06.589 UT.

@@ -269,7 +269,7 @@ func TestEclipseFirstLineMarksNextDay(t *testing.T) {
 // the eclipse's own search of the horizon, from its fitted positions, lands
 // a few tenths of a second away, which showed as "Moon rises 07:36:27" in the
 // eclipse beside a moonrise at 07:36:26. Each time is also within 1 s of
-// PyEphem 4.1 (pressure 0; the Sun's centre at −50′, the Moon's upper limb
+// PyEphem 4.1.4 (pressure 0; the Sun's centre at −50′, the Moon's upper limb
 // at −34′, topocentric), the last field of each case.
 func TestEclipseRiseSetAsEntries(t *testing.T) {
 	for _, c := range []struct {

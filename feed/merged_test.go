@@ -18,7 +18,7 @@ import (
 // twilight glow and carries no eye caution; where it rises, it keeps it.
 //
 // The altitudes are the Sun's centre at upper (lower) transit, geometric (no
-// refraction), topocentric, sea level, from PyEphem 4.1 (libastro) with
+// refraction), topocentric, sea level, from PyEphem 4.1.4 (libastro) with
 // pressure = 0: Observer.next_transit / next_antitransit, then Sun.alt;
 // printed by /usr/bin/python3 with `import ephem` (the same definitions as
 // tools/pyephem-checks/values.py). heliocal's text rounds to 0.1°; the test
@@ -136,7 +136,7 @@ func TestBandSpanFromTheDayBeforeCoversTheFirstDate(t *testing.T) {
 // listing's end, said in words; the dates it covers say that the golden
 // hour begun before them lasts into them.
 //
-// PyEphem 4.1 (libastro), Observer 89.5° N 0° E, pressure 0, elevation 0:
+// PyEphem 4.1.4 (libastro), Observer 89.5° N 0° E, pressure 0, elevation 0:
 // next_rising(Sun, use_center=True) with horizon −4° from 2026-03-10 20:00
 // UT gives 2026-03-11 04:01:01 UT; the Sun's altitude, sampled every 10 s,
 // passes +6° between 08:08:40 and 08:08:50 UT on 2026-04-04.

@@ -16,7 +16,7 @@ import (
 // has its dark window of 45 min or more or a note, as every date has a
 // blue hour of 20 min or more or a note.
 //
-// Source: PyEphem 4.1 (Observer at 50.0, 10.0, pressure 0; the Sun's
+// Source: PyEphem 4.1.4 (Observer at 50.0, 10.0, pressure 0; the Sun's
 // centre at −18°, the Moon's upper limb at −34′; for the blue hour the
 // Sun's centre at −6° and −4°):
 //   - night of 11–12 May: moonset 2027-05-12 00:14:13 UTC, astronomical
@@ -203,7 +203,7 @@ func TestFiltersInCalendarDescription(t *testing.T) {
 // midnight. At 50° N, 10° E (sea level, Europe/Berlin) the window of the
 // night of 11–12 May 2027 begins at moonset, 2027-05-12 00:14:13 UTC
 // (02:14 CEST on 12 May), and ends at astronomical dawn, 01:03:05 UTC
-// (PyEphem 4.1, as in TestSpansUnderMinimumNoted).
+// (PyEphem 4.1.4, as in TestSpansUnderMinimumNoted).
 func TestDarkWindowAllDayDate(t *testing.T) {
 	s := site(t, "mid-50", 50, 10, "Europe/Berlin")
 	sk := sky(t, "2027-05-11", "2027-05-11")

@@ -71,7 +71,7 @@ func TestRowTitleSaysTimesOnce(t *testing.T) {
 // row the row's date ("on this date", "this night"). At 50° N, 10° E (sea
 // level, Europe/Berlin) the only dark window of the night of 12–13 May 2027
 // runs from moonset at 00:37:00 UTC to astronomical dawn at 00:59:42 UTC,
-// 22.70 min, under a minimum of 45 min (PyEphem 4.1, Observer at 50.0,
+// 22.70 min, under a minimum of 45 min (PyEphem 4.1.4, Observer at 50.0,
 // 10.0, pressure 0; the Sun's centre at −18°, the Moon's upper limb at
 // −34′). The other notes' states are given.
 func TestRowTitleOfDatesWithoutEvent(t *testing.T) {

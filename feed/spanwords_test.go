@@ -9,11 +9,11 @@ import (
 
 // SpanWords gives the words the entries' titles give each band span, for
 // the spans of TestMergedBandSpans and TestBandAroundTheClock (their
-// sources: PyEphem 4.1): a morning and an evening, one span around
+// sources: PyEphem 4.1.4): a morning and an evening, one span around
 // midnight, one through noon with the Sun up, one of twilight glow where
 // it does not rise, one the Sun stays in for weeks near the pole, and a
 // sun band's span through noon. The two sun bands: on 20 October 2026 the
-// Sun culminates at +1.37° (TestMergedBandSpans, PyEphem 4.1), inside
+// Sun culminates at +1.37° (TestMergedBandSpans, PyEphem 4.1.4), inside
 // −2..3°, so its span runs through midday; on 20 June 2026, a day before
 // the solstice, its declination is near the obliquity of the ecliptic,
 // 23.4° (from memory), so it culminates about 90° − 78.2° + 23.4° = 35.2°

@@ -16,7 +16,7 @@ import (
 // August 2015 to rise again at 01:29 UT (rows sun-0174, sun-0175): source
 // USNO one-year table 'Rise and Set for the Sun', N80 00 / 000 00, 2015. The
 // Sun's centre then stays above −6° all night: its lowest, at lower
-// culmination, is about −1.5° (the declination, 8.47° by PyEphem 4.1 at
+// culmination, is about −1.5° (the declination, 8.47° by PyEphem 4.1.4 at
 // 23:55 UT, less 90° − 80°), so civil twilight lasts all night.
 func TestTwilightNoteUnderMidnightSun(t *testing.T) {
 	s := site(t, "usno-80n", 80, 0, "UTC")

@@ -518,7 +518,7 @@ feeds:
 // in `events --feed`, its JSON and CSV state "under-min-duration": at
 // 50° N, 10° E the only window of the night of 12–13 May 2027 runs from
 // moonset at 00:37:00 UTC to astronomical dawn at 00:59:42 UTC, 22.70 min
-// (PyEphem 4.1: pressure 0, the Moon's upper limb at −34′, the Sun's
+// (PyEphem 4.1.4: pressure 0, the Moon's upper limb at −34′, the Sun's
 // centre at −18°).
 func TestEventsFeedUnderMinimumNote(t *testing.T) {
 	cfg := writeConfig(t, `

@@ -14,7 +14,7 @@ import (
 // morning in one"; a span through noon of a Sun that does not rise (1
 // November 2026) is twilight glow in both. The same query's iCalendar
 // (--format ics) has the feed's titles. The spans are those of the feed
-// package's TestMergedBandSpans (PyEphem 4.1: lower transit 2026-04-09
+// package's TestMergedBandSpans (PyEphem 4.1.4: lower transit 2026-04-09
 // 22:59 UT at −3.9481°, upper transits 2026-10-20 10:42 UT at +1.3720° and
 // 2026-11-01 10:41 UT at −2.7057°).
 func TestTableSpanWordsAsFeed(t *testing.T) {
@@ -63,10 +63,10 @@ func TestTableSpanWordsAsFeed(t *testing.T) {
 // highest or lowest altitude of a day to give: the table and the feed write
 // none, and JSON and CSV must not either. At 77.8° S, 166.7° E the Sun stays
 // between +5° and +40° from 10 November 2026 to 2 February 2027 (local),
-// climbing to 35.63° on 22 December (PyEphem 4.1, Observer −77.8°
+// climbing to 35.63° on 22 December (PyEphem 4.1.4, Observer −77.8°
 // 166.7°, pressure 0, elevation 0, sampled every 10 min: 35.6337° at
 // 2026-12-22 00:55 UT). It enters through +5° at 2026-11-09 13:24:17 UT
-// and leaves at 2027-02-01 12:33:07 UT (PyEphem 4.1, the same Observer,
+// and leaves at 2027-02-01 12:33:07 UT (PyEphem 4.1.4, the same Observer,
 // horizon 5°, next_rising and next_setting of the Sun's centre), which
 // the checks below hold to the ten seconds. A one-day search over the
 // span had written "altitude_deg": 31.8432, neither the highest nor the
@@ -90,7 +90,7 @@ func TestAroundTheClockHasNoAltitude(t *testing.T) {
 		t.Errorf("JSON: the span around the clock is not as expected (or has an altitude):\n%s", js)
 	}
 	// the day before, morning and evening meet within the day: its highest
-	// altitude stays (PyEphem 4.1 as above: 29.00° on 9 November)
+	// altitude stays (PyEphem 4.1.4 as above: 29.00° on 9 November)
 	if !strings.Contains(js, `"date":"2026-11-09","part":"all-day","altitude_deg":29.00`) {
 		t.Errorf("JSON: the span of 9 November lost its highest altitude:\n%s", js)
 	}
@@ -148,7 +148,7 @@ func TestOpenSpanMarked(t *testing.T) {
 
 // A span of days is as long in the table as in the feed, and in days: the
 // McMurdo span from 02:24:17 NZDT on 10 November 2026 to 01:33:07 NZDT on 2
-// February 2027 (PyEphem 4.1, as in TestAroundTheClockHasNoAltitude) lasts
+// February 2027 (PyEphem 4.1.4, as in TestAroundTheClockHasNoAltitude) lasts
 // 83 days 23 h 08 min 50 s (calendar arithmetic), 83 days 23 h 09 min to
 // the minute, not "2015 h 09 min".
 func TestSpanOfDaysInDays(t *testing.T) {
@@ -218,7 +218,7 @@ feeds:
 // lasting into it, is not "no event" in the table: the band's light goes
 // on, as the feed's note says. At 78.2° N, 15.6° E on 29 April 2027 the Sun
 // stays between −3° and +3° from the 28th on (the feed package's
-// TestSunBandNotesInTheBandsWords, after PyEphem 4.1).
+// TestSunBandNotesInTheBandsWords, after PyEphem 4.1.4).
 func TestTableBandSpanLastsIntoDate(t *testing.T) {
 	code, table, errOut := runCLI(t, "events", "--lat", "78.2", "--lon", "15.6", "--tz", "Arctic/Longyearbyen",
 		"--from", "2027-04-29", "--to", "2027-04-29", "--kinds", "sun-band:-3..3")

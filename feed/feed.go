@@ -94,10 +94,14 @@ type Site struct {
 	Elevation float64 // metres above sea level
 	Location  *time.Location
 	// Horizon is the altitude of the visible horizon in degrees (hills), 0
-	// for a flat one (lowered by the dip of Elevation) unless HorizonSet (a
-	// level one, written 0: config.Site.HorizonSet); Skyline, when its
-	// Points are not zero, the horizon per direction instead.
-	Horizon    float64
+	// for a flat one (lowered by the dip of Elevation) unless HorizonSet;
+	// Skyline, when its Points are not zero, the horizon per direction
+	// instead.
+	Horizon float64
+	// HorizonSet is true when rise and set are taken over the one altitude
+	// Horizon, 0 included (a level horizon, no dip), as config.Site.OwnHorizon
+	// reports it (SiteOf; not config.Site.HorizonSet, which is false for a
+	// Horizon other than 0 set without it): never beside a skyline.
 	HorizonSet bool
 	Skyline    SkylineFacts
 	// Pressure (hPa) and Temperature (°C) are the air the refraction is

@@ -1161,8 +1161,8 @@ func twiceClock(ts config.TimeSpec, t time.Time, z *zoneCache) (clockMove, bool)
 		return clockMove{}, false
 	}
 	_, after := z.at(next)
-	by := time.Duration(off-after) * time.Second
-	if by <= 0 || time.Duration(next-u)*time.Second > by { // as ShownTwice
+	by := shownAgain(int(off), int(after), time.Duration(next-u)*time.Second)
+	if by == 0 {
 		return clockMove{}, false
 	}
 	return clockMove{written: ts.Clock, by: -by, t: t.In(z.loc)}, true

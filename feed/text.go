@@ -43,8 +43,7 @@ func ShownTwice(t time.Time) bool {
 	start, end := astro.ZonePeriod(t) // its end after t past the zone data's last transition too
 	_, off := t.Zone()
 	if !end.IsZero() {
-		_, next := end.Zone()
-		if back := time.Duration(off-next) * time.Second; back > 0 && end.Sub(t) <= back {
+		if _, next := end.Zone(); shownAgain(off, next, end.Sub(t)) > 0 {
 			return true
 		}
 	}
@@ -55,6 +54,18 @@ func ShownTwice(t time.Time) bool {
 		}
 	}
 	return false
+}
+
+// shownAgain is how far the clocks go back at a change of offset from off
+// to next (seconds east of UTC) that comes toChange after an instant whose
+// reading they show again after it (the instant is in the first pass of
+// the repeated hour); 0 when they do not go back, or not so far.
+func shownAgain(off, next int, toChange time.Duration) time.Duration {
+	back := time.Duration(off-next) * time.Second
+	if back <= 0 || toChange > back {
+		return 0
+	}
+	return back
 }
 
 // ZoneLabel is how the texts name a zone at an instant: its abbreviation

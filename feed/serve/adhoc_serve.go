@@ -47,13 +47,26 @@ func (s *Server) serveAdhoc(w http.ResponseWriter, r *http.Request) {
 		s.serveAsset(w, r, a)
 	case errors.As(err, &qe):
 		plain(w, http.StatusBadRequest, qe.Error())
-	case errors.Is(err, errAdhocBusy), errors.Is(err, context.DeadlineExceeded), errors.Is(err, context.Canceled):
-		w.Header()["Retry-After"] = hdrRetryAfter
-		plain(w, http.StatusServiceUnavailable, "server busy building ad-hoc feeds; try again shortly")
+	case busy(err):
+		tryLater(w, plain, "server busy building ad-hoc feeds; try again shortly")
 	default:
 		s.log.Error("ad-hoc feed failed", "query", key, "err", err)
 		plain(w, http.StatusInternalServerError, "internal error building the feed")
 	}
+}
+
+// busy reports whether err is a computation that found no free ad-hoc slot
+// (errAdhocBusy) or was cut short (its deadline, or every request that
+// waited for it gone): the server is busy, not failing.
+func busy(err error) bool {
+	return errors.Is(err, errAdhocBusy) || errors.Is(err, context.DeadlineExceeded) || errors.Is(err, context.Canceled)
+}
+
+// tryLater answers 503 with msg through fail (plain, or the table's page),
+// and Retry-After.
+func tryLater(w http.ResponseWriter, fail failFunc, msg string) {
+	w.Header()["Retry-After"] = hdrRetryAfter
+	fail(w, http.StatusServiceUnavailable, msg)
 }
 
 // warmQuery is the ad-hoc query WarmAdhoc builds: the default kinds and

@@ -612,9 +612,8 @@ func (s *Server) computeFailed(w http.ResponseWriter, q AdhocQuery, err error, f
 		return false
 	case errors.As(err, &qe):
 		fail(w, http.StatusBadRequest, qe.Error())
-	case errors.Is(err, errAdhocBusy), errors.Is(err, context.DeadlineExceeded), errors.Is(err, context.Canceled):
-		w.Header()["Retry-After"] = hdrRetryAfter
-		fail(w, http.StatusServiceUnavailable, "server busy; try again shortly")
+	case busy(err):
+		tryLater(w, fail, "server busy; try again shortly")
 	default:
 		s.log.Error(strings.TrimPrefix(what, "the ")+" failed", "query", q.String(), "err", err)
 		fail(w, http.StatusInternalServerError, "internal error computing "+what)

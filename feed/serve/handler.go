@@ -190,8 +190,7 @@ func truncate(s string, n int) string {
 func (s *Server) serveBundleFile(w http.ResponseWriter, r *http.Request, name string) {
 	snap := s.snap.Load()
 	if snap == nil {
-		w.Header()["Retry-After"] = hdrRetryAfter
-		plain(w, http.StatusServiceUnavailable, "feeds are being built; try again shortly")
+		tryLater(w, plain, "feeds are being built; try again shortly")
 		return
 	}
 	a := snap.files[name]

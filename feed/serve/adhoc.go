@@ -422,26 +422,54 @@ func parseCoord(get getter, name string, limit float64, hint string) (float64, e
 	return math.Round(f*coordDecimals)/coordDecimals + 0, nil
 }
 
+// parseKinds reads v, a comma-separated list of kinds, each read by parse
+// into its canonical form; a kind given twice is kept where it was first.
 func parseKinds(v string, parse func(string) (string, error)) ([]string, error) {
-	parts := strings.Split(v, ",")
-	if len(parts) > maxKinds {
-		return nil, &QueryError{Param: ParamKinds, Value: v, Msg: fmt.Sprintf("more than %d kinds", maxKinds)}
-	}
-	kinds := make([]string, 0, len(parts))
-	for _, p := range parts {
-		p = strings.TrimSpace(p)
-		if p == "" {
-			return nil, &QueryError{Param: ParamKinds, Value: v, Msg: "empty kind in the list"}
-		}
-		k, err := parse(p)
-		if err != nil {
-			return nil, &QueryError{Param: ParamKinds, Value: p, Msg: oneLine(err.Error())}
-		}
-		if !slices.Contains(kinds, k) { // given twice: where it was first
+	kinds := make([]string, 0, strings.Count(v, ",")+1)
+	var bad error
+	err := kindItems(v, parse, func(item, k string, err error) bool {
+		switch {
+		case item == "":
+			bad = &QueryError{Param: ParamKinds, Value: v, Msg: "empty kind in the list"}
+		case err != nil:
+			bad = err
+		case !slices.Contains(kinds, k):
 			kinds = append(kinds, k)
 		}
+		return bad == nil
+	})
+	if err == nil {
+		err = bad
+	}
+	if err != nil {
+		return nil, err
 	}
 	return kinds, nil
+}
+
+// kindItems reads v, a comma-separated list of kinds: more than maxKinds
+// is an error; otherwise each item, trimmed, goes to yield with the kind
+// parse reads it as, or with a *QueryError naming it (an empty item, "",
+// is not read), until yield returns false. The ad-hoc feed refuses the
+// list at its first bad item (parseKinds), the builder's page leaves that
+// item out (filler.kinds).
+func kindItems(v string, parse func(string) (string, error), yield func(item, kind string, err error) bool) error {
+	if strings.Count(v, ",") >= maxKinds {
+		return &QueryError{Param: ParamKinds, Value: v, Msg: fmt.Sprintf("more than %d kinds", maxKinds)}
+	}
+	for p := range strings.SplitSeq(v, ",") {
+		var k string
+		var err error
+		if p = strings.TrimSpace(p); p != "" {
+			if k, err = parse(p); err != nil {
+				k, err = "", &QueryError{Param: ParamKinds, Value: p, Msg: oneLine(err.Error())}
+			}
+		}
+		if !yield(p, k, err) {
+			break
+		}
+	}
+	return nil
 }
 
 // oneLine keeps the first line of a message.

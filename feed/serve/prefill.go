@@ -163,7 +163,7 @@ type filler struct {
 
 // ignore adds the note on the value of param left out, msg saying why.
 func (r *filler) ignore(param, value, msg string) {
-	r.f.Ignored = append(r.f.Ignored, strings.TrimPrefix((&QueryError{Param: param, Value: value, Msg: msg}).Error(), "serve: "))
+	r.note(&QueryError{Param: param, Value: value, Msg: msg})
 }
 
 // has reports whether the query gives name once.
@@ -189,8 +189,14 @@ func (r *filler) read(name string, step func(getter) error) {
 	keep := r.f
 	if err := step(r.only(name)); err != nil {
 		r.f = keep
-		r.f.Ignored = append(r.f.Ignored, strings.TrimPrefix(err.Error(), "serve: "))
+		r.note(err)
 	}
+}
+
+// note adds the note of err, a value left out, without its package's
+// prefix.
+func (r *filler) note(err error) {
+	r.f.Ignored = append(r.f.Ignored, strings.TrimPrefix(err.Error(), "serve: "))
 }
 
 // maxFillNotes is the most lines the builder's note on the values of its
@@ -223,19 +229,15 @@ func (r *filler) kinds() (ticked map[string]bool, shifts map[string]string) {
 		return err
 	})
 	q.Kinds = nil
-	if v := r.vals.Get(ParamKinds); r.has(ParamKinds) && strings.Count(v, ",") >= maxKinds {
-		r.ignore(ParamKinds, v, "more than "+strconv.Itoa(maxKinds)+" kinds")
-	} else if r.has(ParamKinds) {
-		for _, p := range strings.Split(v, ",") {
-			if p = strings.TrimSpace(p); p == "" {
-				continue
-			}
-			k, err := r.lim.parseKind(p)
+	if r.has(ParamKinds) {
+		err := kindItems(r.vals.Get(ParamKinds), r.lim.parseKind, func(p, k string, err error) bool {
 			isLighting := strings.HasPrefix(k, config.KindLighting+":")
 			switch {
+			case p == "":
+				return true
 			case err != nil:
-				r.ignore(ParamKinds, p, oneLine(err.Error()))
-				continue
+				r.note(err)
+				return true
 			case k == lighting:
 			case isLighting && lighting != "":
 				r.ignore(ParamKinds, p, "the builder takes one lighting target, "+lighting)
@@ -250,6 +252,10 @@ func (r *filler) kinds() (ticked map[string]bool, shifts map[string]string) {
 				ticked[k] = true
 			}
 			q.Kinds = append(q.Kinds, k) // for offsets, as the feed reads them
+			return true
+		})
+		if err != nil {
+			r.note(err)
 		}
 	}
 	if lighting != "" && ticked == nil {
@@ -267,7 +273,7 @@ func (r *filler) kinds() (ticked map[string]bool, shifts map[string]string) {
 			continue
 		}
 		if err := q.parseOffsets(item, &r.lim); err != nil {
-			r.f.Ignored = append(r.f.Ignored, strings.TrimPrefix(err.Error(), "serve: "))
+			r.note(err)
 			continue
 		}
 		for k, d := range q.Offsets { // one kind, or none for a shift of 0

@@ -162,18 +162,12 @@ func (l *liveLock) current() bool {
 }
 
 // exclusive trades the shared lock for an exclusive one, which is there
-// only when no other run holds the shared one, and calls fn holding it if
-// the file is still the one at the path; then it gives the exclusive lock
-// up (the shared one is not taken back). It reports whether fn was called.
-func (l *liveLock) exclusive(fn func()) bool {
+// only when no other run holds the shared one, and reports whether it has
+// it on the file still at the path. The caller gives it up (unlockFile).
+func (l *liveLock) exclusive() bool {
 	unlockFile(l.f)
 	ok, err := tryLock(l.f)
-	ok = ok && err == nil && l.current()
-	if ok {
-		fn()
-	}
-	unlockFile(l.f)
-	return ok
+	return ok && err == nil && l.current()
 }
 
 // alone calls fn if no other run is alive, and reports whether it did.
@@ -187,17 +181,35 @@ func (l *liveLock) alone(fn func()) bool {
 	if l == nil {
 		return false
 	}
-	ok := l.exclusive(fn)
+	ok := l.exclusive()
+	if ok {
+		fn()
+	}
+	unlockFile(l.f)
 	tryLockShared(l.f)
 	return ok
 }
 
-// release gives the lock back; the last run out removes the file
-// (removeLive; nil: nothing to give back).
+// release gives the lock back, and closes the file; the last run out (the
+// one that can lock it exclusively) removes it. Where an open file can be
+// removed, it is removed while still locked: a run that opened it before
+// and waits for its lock then finds it gone from the path (holdLive), and
+// one that opens the path after creates another. Windows removes no file
+// that a handle holds open without FILE_SHARE_DELETE, which os.OpenFile
+// does not give: there the file is closed first, and when another run
+// opens it meanwhile, before it takes the lock, the removal fails and the
+// file stays for that run. Nil: nothing to give back.
 func (l *liveLock) release() {
 	if l == nil {
 		return
 	}
-	l.exclusive(func() { removeLive(l.f, l.path) })
+	last := l.exclusive()
+	if last && removesOpenFiles {
+		os.Remove(l.path)
+	}
+	unlockFile(l.f)
 	l.f.Close()
+	if last && !removesOpenFiles {
+		os.Remove(l.path)
+	}
 }

@@ -17,8 +17,6 @@ func tryLockShared(*os.File) (bool, error) { return true, nil }
 
 func unlockFile(*os.File) {}
 
-// removeLive removes LiveName at path, f being its file, locked
-// exclusively, while f stays locked: a run that opened the file before and
-// waits for its lock then finds it gone from the path (holdLive), and one
-// that opens the path after creates another.
-func removeLive(_ *os.File, path string) { os.Remove(path) }
+// removesOpenFiles: a file that is open is removed as on Unix (see
+// liveLock.release); no lock is held here anyway.
+const removesOpenFiles = true

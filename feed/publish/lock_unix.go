@@ -35,8 +35,6 @@ func flockNB(f *os.File, how int) (bool, error) {
 
 func unlockFile(f *os.File) { syscall.Flock(int(f.Fd()), syscall.LOCK_UN) }
 
-// removeLive removes LiveName at path, f being its file, locked
-// exclusively, while f stays locked: a run that opened the file before and
-// waits for its lock then finds it gone from the path (holdLive), and one
-// that opens the path after creates another.
-func removeLive(_ *os.File, path string) { os.Remove(path) }
+// removesOpenFiles: unlink(2) removes the name of a file that is open
+// (see liveLock.release).
+const removesOpenFiles = true

@@ -32,13 +32,6 @@ func unlockFile(f *os.File) {
 	windows.UnlockFileEx(windows.Handle(f.Fd()), 0, 1, 0, new(windows.Overlapped))
 }
 
-// removeLive removes LiveName at path, f being its file, locked
-// exclusively. Windows deletes no file that a handle holds open without
-// FILE_SHARE_DELETE, which os.OpenFile does not give, f included: f is
-// closed first, and when another run opens the file meanwhile, before it
-// takes the lock, the removal fails and the file stays for that run.
-func removeLive(f *os.File, path string) {
-	unlockFile(f)
-	f.Close()
-	os.Remove(path)
-}
+// removesOpenFiles: Windows removes no file that a handle holds open
+// without FILE_SHARE_DELETE (see liveLock.release).
+const removesOpenFiles = false

@@ -279,7 +279,7 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 		for _, n := range col.notes[m0:] {
 			if n.Kind.Name == "photoperiod" && !n.Last.IsZero() {
 				title, _, _ := describeNote(w.site, n)
-				col.notCrossed = append(col.notCrossed, KindNote{Kind: n.Kind.String(), Title: title})
+				col.found.notCrossed = append(col.found.notCrossed, KindNote{Kind: n.Kind.String(), Title: title})
 			}
 		}
 		moveStretchNotes(col.notes[m0:], spec.Filter(), col.last)
@@ -288,14 +288,14 @@ func (sky *Sky) entries(col *collector, s *config.Site, feedID string, specs []c
 		}
 		w.flushText()
 		w.out = keep(w.out, from, spec)
-		if col.gaps != nil && spec.Kind.Name == config.KindLighting {
-			col.gaps.gaps = appendLimitGaps(col.gaps.gaps, spec, w.cur.kind, w.out[from:], w.site.zone)
+		if col.found.gaps != nil && spec.Kind.Name == config.KindLighting {
+			col.found.gaps.gaps = appendLimitGaps(col.found.gaps.gaps, spec, w.cur.kind, w.out[from:], w.site.zone)
 		}
 		// each kind's events are done with once they are entries
 		col.events, col.notes = col.events[:0], col.notes[:0]
 	}
 	w.flushText()
-	col.shared = w.shared
+	col.found.shared = w.shared
 	if keepText {
 		return w.out, w.text, nil
 	}

@@ -89,7 +89,7 @@ type planAnchor struct {
 func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed, first, last time.Time) ([]Entry, []byte, found, error) {
 	col := &collector{ctx: ctx, sky: sky, p: PlaceOf(s), first: civil(first), last: civil(last)}
 	if HasLampLimit(f) && ownLimitGaps(f) {
-		col.gaps = &limitGaps{}
+		col.found.gaps = &limitGaps{}
 	}
 	// the collector's events are scratch: entries copies each into an
 	// entry, the plans' times copy those they keep (kindTimes), and
@@ -107,7 +107,7 @@ func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed,
 		if err != nil {
 			return nil, nil, found{}, err
 		}
-		return sortEntries(es), text, col.found(), nil
+		return sortEntries(es), text, col.found, nil
 	}
 	parsed, kinds, err := parsePlans(f.Plans)
 	if err != nil {
@@ -130,24 +130,25 @@ func (sky *Sky) feedEntries(ctx context.Context, s *config.Site, f *config.Feed,
 	if es, text, err = sky.planEntries(col, s, f.ID, parsed, kinds, pd, es, text); err != nil {
 		return nil, nil, found{}, err
 	}
-	fd := col.found()
-	fd.skippedPlans = pd.skipped
-	return sortEntries(es), text, fd, nil
+	col.found.skippedPlans = pd.skipped
+	return sortEntries(es), text, col.found, nil
 }
 
-// found is what feedEntries finds beside the entries: the lighting limits
-// that do nothing on some dates (nil when not looked for), the notes of the
-// photoperiod thresholds no date crosses, the plans' dates the clocks skip.
+// found is what feedEntries finds beside the entries (collector.found).
 type found struct {
-	gaps         *limitGaps
-	notCrossed   []KindNote
+	// gaps, when set, receives the lighting limits that do nothing on
+	// some dates, each lighting kind's found from its own entries as they
+	// are written (appendLimitGaps); nil when not looked for
+	gaps *limitGaps
+	// notCrossed are the notes of the photoperiod thresholds that no date
+	// crosses, whatever dates their kinds entries' filters keep
+	// (Calendar.NotCrossed)
+	notCrossed []KindNote
+	// skippedPlans are the plans' dates the clocks skip
 	skippedPlans []SkippedPlan
-	shared       map[string][]string // Calendar.SharedNotes
-}
-
-// found is what c found beside the entries.
-func (c *collector) found() found {
-	return found{gaps: c.gaps, notCrossed: c.notCrossed, shared: c.shared}
+	// shared are the kinds a note entry stands for beside its own, by its
+	// UID (Calendar.SharedNotes), as the entries' writer found them
+	shared map[string][]string
 }
 
 // limitGaps are the lighting limits of a feed that do nothing on some of

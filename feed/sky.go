@@ -970,9 +970,6 @@ type collector struct {
 	thresholds   map[float64]*threshold
 	maxLit       float64         // dark-window: the Moon's largest illuminated fraction still dark
 	spec         config.KindSpec // the options of the kind being added (lighting)
-	// shared are the kinds a note entry stands for beside its own, by its
-	// UID (Calendar.SharedNotes), as the entries' writer found them
-	shared map[string][]string
 	// lamps is the rest of a block of room for the lamp periods' figures
 	// (keepLamps), lampBlock the block's length
 	lamps     []eventMore
@@ -983,14 +980,11 @@ type collector struct {
 	// scratch, when set, is where the working slices by date come from
 	// (times, durations, flags): a chunk's buffers
 	scratch *buffers
-	// notCrossed receives the notes of the photoperiod thresholds that no
-	// date crosses, whatever dates their kinds entries' filters keep
-	// (Calendar.NotCrossed).
-	notCrossed []KindNote
-	// gaps, when set, receives the lighting limits that do nothing on
-	// some dates, each lighting kind's found from its own entries as they
-	// are written (appendLimitGaps)
-	gaps *limitGaps
+	// found receives what the feed's entries find beside them: the notes
+	// of the photoperiod thresholds no date crosses, the lighting limits
+	// that do nothing on some dates, the kinds a note stands for beside
+	// its own
+	found found
 	// keyDates, when set, is the table of the window's date texts of the
 	// UID keys (entryWriter.dates) that the feed's kinds and its plans
 	// share: the plans' dates are among the dates the kinds wrote

@@ -16,17 +16,33 @@ import (
 // plain "write decimal degrees, …, e.g. …" when x is none of these or is out
 // of range.
 func coordinateHint(key, x string) string {
-	text := coordinateText[key]
-	v, ok := coordinateValue(key, x)
-	if !ok {
-		limit, pos, neg := coordinateAxis(key)
-		if f, read := readCoordinate(x, pos, neg); read && math.Abs(f) > limit {
-			// 95N: beyond the pole, a slip of the digits that no form fixes
-			return fmt.Sprintf("a %s is at most %g°, %s or %s: write %s", key, limit, pos, neg, text)
-		}
-		return "write " + text
+	if v, ok := coordinateValue(key, x); ok {
+		return "write " + v + ": " + coordinateUnits(key)
 	}
-	return "write " + v + ": " + text[:strings.Index(text, ", e.g.")]
+	if over := coordinateOver(key, x); over != "" {
+		return over
+	}
+	return "write " + coordinateText[key]
+}
+
+// coordinateUnits says how key, latitude or longitude, is written, its
+// text without the example: "decimal degrees, east positive, west
+// negative".
+func coordinateUnits(key string) string {
+	text := coordinateText[key]
+	return text[:strings.Index(text, ", e.g.")]
+}
+
+// coordinateOver is the hint of x, a latitude or longitude read beyond
+// the pole or the date line, a slip of the digits that no form fixes
+// ("95N": "a latitude is at most 90°, N or S: write decimal degrees, …");
+// "" for another x.
+func coordinateOver(key, x string) string {
+	limit, pos, neg := coordinateAxis(key)
+	if f, read := readCoordinate(x, pos, neg); read && math.Abs(f) > limit {
+		return fmt.Sprintf("a %s is at most %g°, %s or %s: write %s", key, limit, pos, neg, coordinateText[key])
+	}
+	return ""
 }
 
 // coordinateValue is x, a latitude or longitude written as coordinateHint

@@ -244,12 +244,12 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		}
 	}
 	for i := range problems {
-		var n int
-		if problems[i].Msg != "unknown time zone" || !strings.HasPrefix(problems[i].Path, "sites[") {
+		if problems[i].Msg != "unknown time zone" {
 			continue
 		}
-		if _, err := fmt.Sscanf(problems[i].Path, "sites[%d].timezone", &n); err != nil || problems[i].Path != fmt.Sprintf("sites[%d].timezone", n) ||
-			n >= len(c.Sites) || n >= len(located) || !located[n][0] || !located[n][1] {
+		site, key, _ := strings.Cut(problems[i].Path, ".")
+		list, n := splitSegment(site)
+		if list != "sites" || key != "timezone" || n < 0 || n >= len(c.Sites) || n >= len(located) || !located[n][0] || !located[n][1] {
 			continue
 		}
 		problems[i].Hint = zoneHintAt(problems[i].Value, problems[i].Hint, c.Sites[n].Latitude, c.Sites[n].Longitude)
@@ -949,16 +949,14 @@ func tomlSlip(msg string, data []byte, row int) string {
 		// 47,5 or 74.0W, read as a number and then more (8.5E as a
 		// number without its exponent): the decimal degrees they are,
 		// not 475 or 740
-		text := coordinateText[key]
 		if v, ok := coordinateValue(key, value); ok {
-			return at("a coordinate is written in %s (write %s = %s)", text[:strings.Index(text, ", e.g.")], key, v)
+			return at("a coordinate is written in %s (write %s = %s)", coordinateUnits(key), key, v)
 		}
 		if !strings.ContainsAny(value[:min(len(value), 1)], "\"'[{") {
-			hint := coordinateHint(key, value) // 95N: the range
-			if h, ok := strings.CutPrefix(hint, "write "); ok {
-				hint = "a coordinate is written in " + h
+			if over := coordinateOver(key, value); over != "" {
+				return at("%s", over) // 95N: the range
 			}
-			return at("%s", hint)
+			return at("a coordinate is written in %s", coordinateText[key])
 		}
 	case strings.HasSuffix(msg, "expected newline but got U+002C ','") && thousands(value):
 		return at("a number is written without separators (write %s = %s)", key, strings.ReplaceAll(value, ",", ""))

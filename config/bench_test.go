@@ -2,6 +2,7 @@ package config
 
 import (
 	"bytes"
+	"errors"
 	"fmt"
 	"strings"
 	"testing"
@@ -34,6 +35,30 @@ func BenchmarkParseFleet(b *testing.B) {
 	for b.Loop() {
 		if _, err := Parse(bytes.NewReader(data), "yaml"); err != nil {
 			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkCheckFleetTOML reads a TOML configuration of 1,000 sites, each
+// without its latitude, with one feed each: 1,000 problems, each named with
+// the line of its site's first key (the last, 4997), [[sites]] having no key of its own
+// (fieldLines).
+func BenchmarkCheckFleetTOML(b *testing.B) {
+	var sb strings.Builder
+	for i := range 1000 {
+		fmt.Fprintf(&sb, "[[sites]]\nid = \"site-%04d\"\nlongitude = %.3f\ntimezone = \"Europe/Vienna\"\n\n", i, float64(i%360)-179.5)
+	}
+	for i := range 1000 {
+		fmt.Fprintf(&sb, "[[feeds]]\nid = \"site-%04d-sun\"\nsite = \"site-%04d\"\nkinds = [\"sunrise\", \"sunset\"]\n\n", i, i)
+	}
+	data := []byte(sb.String())
+	b.SetBytes(int64(len(data)))
+	b.ReportAllocs()
+	for b.Loop() {
+		_, err := Parse(bytes.NewReader(data), "toml")
+		var ve *ValidationError
+		if !errors.As(err, &ve) || len(ve.Problems) != 1000 || ve.Problems[999].Line != 4997 {
+			b.Fatalf("want 1,000 problems, the last on line 4997: %v", err)
 		}
 	}
 }

@@ -298,9 +298,10 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 			}
 		}
 	}
+	lines := fieldLines{places: places}
 	for i := range problems {
 		if _, env := fromEnv[problems[i].Path]; !env && !strings.HasPrefix(problems[i].Msg, "duplicate key:") { // a duplicate names its lines
-			problems[i].Line = lineOf(places, problems[i].Path)
+			problems[i].Line = lines.of(problems[i].Path)
 		}
 	}
 	if format == "yaml" {
@@ -382,25 +383,27 @@ func yamlScalarAt(doc *yaml.Node, path string) *yaml.Node {
 	return n
 }
 
-// lineOf is the line the field at path is written on, as places records
-// the keys (and YAML's list items); for a field not written (a key that
-// is missing, a default), the line of the nearest mapping or list item
-// around it that is; 0 when none is.
-func lineOf(places map[string]keyPlace, path string) int {
+// fieldLines finds the lines fields are written on (of), from places,
+// where the keys (and YAML's list items) are.
+type fieldLines struct {
+	places map[string]keyPlace
+	// firsts is the line of the first key of each list item ("sites[3]"),
+	// gathered from places at the first lookup that needs it
+	firsts map[string]int
+}
+
+// of is the line the field at path is written on; for a field not written
+// (a key that is missing, a default), the line of the nearest mapping or
+// list item around it that is; 0 when none is.
+func (l *fieldLines) of(path string) int {
 	for p := strings.ToLower(path); p != ""; {
-		if at, ok := places[p]; ok && at.line > 0 {
+		if at, ok := l.places[p]; ok && at.line > 0 {
 			return at.line
 		}
 		if strings.HasSuffix(p, "]") {
 			// a TOML [[sites]] entry has no key of its own: the line of
 			// its first key, for a field missing from it
-			first := 0
-			for q, at := range places {
-				if at.line > 0 && (first == 0 || at.line < first) && strings.HasPrefix(q, p+".") {
-					first = at.line
-				}
-			}
-			if first > 0 {
+			if first := l.first(p); first > 0 {
 				return first
 			}
 		}
@@ -411,6 +414,28 @@ func lineOf(places map[string]keyPlace, path string) int {
 		p = p[:i]
 	}
 	return 0
+}
+
+// first is the first line of the keys within the list item p ("sites[3]":
+// those whose path begins with "sites[3]."), 0 when there is none.
+func (l *fieldLines) first(p string) int {
+	if l.firsts == nil {
+		l.firsts = map[string]int{}
+		for q, at := range l.places {
+			if at.line <= 0 {
+				continue
+			}
+			for i := 0; i+1 < len(q); i++ {
+				if q[i] != ']' || q[i+1] != '.' {
+					continue
+				}
+				if f, ok := l.firsts[q[:i+1]]; !ok || at.line < f {
+					l.firsts[q[:i+1]] = at.line
+				}
+			}
+		}
+	}
+	return l.firsts[p]
 }
 
 // fromUTF16 is data in UTF-8 when it is UTF-16 text that begins with its

@@ -296,9 +296,17 @@ func (d *dupFinder) toml(data []byte) {
 		}
 		return path, last
 	}
+	// at is the line and column (from 1, in bytes) where r begins: the
+	// parser's Shape counts the lines from the start of data again for
+	// each, and its end's too
+	lines := lineCursor{data: data, line: 1}
+	at := func(r unstable.Range) (line, col int) {
+		line, start := lines.at(int(r.Offset))
+		return line, int(r.Offset) - start + 1
+	}
 	key := func(parent string, k *unstable.Node) string {
-		at := p.Shape(k.Raw).Start
-		return d.key(parent, string(k.Data), at.Line, at.Column)
+		line, col := at(k.Raw)
+		return d.key(parent, string(k.Data), line, col)
 	}
 	var value func(v *unstable.Node, path string)
 	value = func(v *unstable.Node, path string) {
@@ -316,8 +324,8 @@ func (d *dupFinder) toml(data []byte) {
 			for it := v.Children(); it.Next(); i++ {
 				item := index(path, i)
 				if n := it.Node(); n.Raw.Length > 0 { // a value written as text: a string, a number
-					at := p.Shape(n.Raw).Start
-					d.seen[item] = keyPlace{line: at.Line, col: at.Column}
+					line, col := at(n.Raw)
+					d.seen[item] = keyPlace{line: line, col: col}
 				}
 				value(it.Node(), item)
 			}
@@ -329,7 +337,7 @@ func (d *dupFinder) toml(data []byte) {
 		e := p.Expression()
 		line := 0
 		if it := e.Key(); it.Next() {
-			line = p.Shape(it.Node().Raw).Start.Line
+			line, _ = at(it.Node().Raw)
 		}
 		if n := len(d.dropLines); n > 0 && d.dropLines[n-1][1] == 0 && (n-1 != open || e.Kind != unstable.KeyValue) {
 			d.dropLines[n-1][1] = line // the repeated expression ends where the next begins

@@ -696,8 +696,9 @@ func TestLightBands(t *testing.T) {
 }
 
 // A night belongs to the date of its evening (noon to noon): a dark window
-// that starts after midnight is listed under the evening before, its times
-// carry "+1 day", and its title and a night's note name the night.
+// that starts after midnight is listed under the evening before, its start
+// says "the next day" with its date (once: the end is on that date too), and
+// its title and a night's note name the night.
 func TestNightDates(t *testing.T) {
 	s := site(t, "oslo", 60, 10.75, "Europe/Oslo")
 	loc := s.TimeZone.Location
@@ -715,7 +716,7 @@ func TestNightDates(t *testing.T) {
 		t.Fatalf("window %s listed on %s; want one after midnight listed on the evening's date", e.Start.In(loc), e.Date.Format(time.DateOnly))
 	}
 	title, _, desc := describe(newSiteInfo(s), e)
-	if !strings.Contains(title, "night of 12–13 February 2027") || !strings.Contains(desc, "+1 day to") || !strings.HasPrefix(desc, "Dark sky on the night of 12–13 February 2027 from 01:") {
+	if !strings.Contains(title, "night of 12–13 February 2027") || !strings.Contains(desc, " CET the next day (Sat 13 Feb) to 05:") || strings.Count(desc, "next day") != 1 || !strings.HasPrefix(desc, "Dark sky on the night of 12–13 February 2027 from 01:") {
 		t.Errorf("title %q, description %q", title, desc)
 	}
 	// a window's length is written as every other duration: "14 h 02 min"

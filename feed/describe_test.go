@@ -383,7 +383,7 @@ func TestMoonMeaningsAndNotesOncePerCalendar(t *testing.T) {
 			"moonset":      regexp.MustCompile(`^Moonset at \d\d:\d\d:\d\d \S+, azimuth \d+° \([a-z-]+\); wa(x|n)ing, \d+ % lit\.$`),
 			"moon-transit": regexp.MustCompile(`^Moon highest at \d\d:\d\d:\d\d \S+, at −?\d+\.\d° altitude(, below the horizon)? \(wa(x|n)ing, \d+ % lit\)\.$`),
 			"moon-phases":  regexp.MustCompile(`^(New moon|First quarter|Full moon|Last quarter) at \d\d:\d\d:\d\d \S+ \(2026-11-\d\d \d\d:\d\d:\d\d UTC\)\.$`),
-			"dark-window":  regexp.MustCompile(`^Dark sky on the night of [0-9–]+ (November–1 December|November) 2026 from \d\d:\d\d:\d\d \S+( \+1 day)? to \d\d:\d\d:\d\d \S+( \+1 day)? \((\d+ h|(\d+ h )?\d+ min)\)\.$`),
+			"dark-window":  regexp.MustCompile(`^Dark sky on the night of [0-9–]+ (November–1 December|November) 2026 from \d\d:\d\d:\d\d \S+( the next day \((Sun|Mon|Tue|Wed|Thu|Fri|Sat) \d+ (Nov|Dec)\))? to \d\d:\d\d:\d\d \S+ (the next day \((Sun|Mon|Tue|Wed|Thu|Fri|Sat) \d+ (Nov|Dec); )?\(?(\d+ h|(\d+ h )?\d+ min)\)\.$`),
 		}
 		notes := 0
 		for _, e := range cal.Entries {
@@ -783,10 +783,10 @@ func TestDarkWindowAcrossClockChange(t *testing.T) {
 		first, last, night, want string
 	}{
 		{"2027-04-02", "2027-04-04", "2027-04-03",
-			"Dark sky on the night of 3–4 April 2027 from 20:36:32 AEDT to 03:33:41 AEST +1 day (7 h 57 min). " +
+			"Dark sky on the night of 3–4 April 2027 from 20:36:32 AEDT to 03:33:41 AEST the next day (Sun 4 Apr; 7 h 57 min). " +
 				"The clocks go back from summer time by 1 h during it: 03:00 AEDT becomes 02:00 AEST."},
 		{"2027-10-01", "2027-10-03", "2027-10-02",
-			"Dark sky on the night of 2–3 October 2027 from 20:58:56 AEST to 05:26:03 AEDT +1 day (7 h 27 min). " +
+			"Dark sky on the night of 2–3 October 2027 from 20:58:56 AEST to 05:26:03 AEDT the next day (Sun 3 Oct; 7 h 27 min). " +
 				"The clocks go forward for summer time by 1 h during it: 02:00 AEST becomes 03:00 AEDT."},
 	} {
 		checkClocksSaidOn(t, s, config.KindSpec{Kind: mustKinds(t, "dark-window")[0]}, c.first, c.last, c.night, c.want)

@@ -241,7 +241,7 @@ func describeSolar(s *siteInfo, e Event, x *EclipseFacts) (string, string) {
 	typ := l.Type.String()
 	var b strings.Builder
 	fmt.Fprintf(&b, "%s solar eclipse seen from %s, %s to %s%s.\n", Capital(typ), s.where,
-		localClock(l.C1.Time, loc), localClock(l.C4.Time, loc), DayMark(l.C4.Time, e.Date, loc))
+		localClock(l.C1.Time, loc), localClock(l.C4.Time, loc), s.zone.appendDayOf(nil, l.C4.Time, e.Date))
 	line := func(name string, c astro.Contact, extra string) {
 		fmt.Fprintf(&b, "%s %s; %s%s.\n", localClock(c.Time, loc), name, placeAt(x, "Sun", c), extra)
 	}
@@ -315,7 +315,7 @@ func describeLunar(s *siteInfo, ev Event, x *EclipseFacts) (string, string) {
 	typ := e.Type.String()
 	var b strings.Builder
 	fmt.Fprintf(&b, "%s lunar eclipse seen from %s, %s to %s%s.\n", Capital(typ), s.where,
-		localClock(l.P1.Time, loc), localClock(l.P4.Time, loc), DayMark(l.P4.Time, ev.Date, loc))
+		localClock(l.P1.Time, loc), localClock(l.P4.Time, loc), s.zone.appendDayOf(nil, l.P4.Time, ev.Date))
 	line := func(name string, c astro.Contact, extra string) {
 		if c.IsZero() {
 			return

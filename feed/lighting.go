@@ -891,7 +891,7 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		last--
 	}
 	if s.zone.dayOf(last) != e.Date.Unix()/secondsPerDay {
-		t = append(t, " +1 day"...) // as the end of a night (appendDays), in one bracket with the length
+		t = append(t, " +1 day"...) // the short mark of titles and the listing's tables (DayMark)
 	}
 	t = append(t, ' ', '(')
 	lamp := len(t)
@@ -934,7 +934,7 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		}
 		b = append(b, ',', ' ', 'o', 'f', 'f', ' ', 'a', 't', ' ',
 			byte('0'+off.h/10), byte('0'+off.h%10), ':', byte('0'+off.m/10), byte('0'+off.m%10), ':', byte('0'+off.s/10), byte('0'+off.s%10), ' ')
-		b = append(s.zone.appendDayMark(append(b, off.zone...), e.End, e.Date), ' ', '(') // " +1 day" after midnight
+		b = s.zone.appendDayBracket(append(b, off.zone...), e.End, s.zone.endRef(e.Start, e.End, e.Date)) // " the next day (Sun 10 Jan; " after midnight
 		b = append(b, descHM...)
 		if l.Clipped && pi == 1 && off.second() != lt.offSec {
 			if m := movedLimit(s.zone, e.End, lt.off); m != "" {
@@ -968,8 +968,8 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 			said = true
 		}
 	}
-	b = s.zone.appendDayMark(off.appendSecond(append(b, ", off at "...)), e.End, e.Date)
-	b = append(append(b, " ("...), descHM...)
+	b = s.zone.appendDayBracket(off.appendSecond(append(b, ", off at "...)), e.End, s.zone.endRef(e.Start, e.End, e.Date))
+	b = append(b, descHM...)
 	if l.Clipped && e.Part != partMorning && lt.offSec >= 0 && off.second() != lt.offSec {
 		if m := movedLimit(s.zone, e.End, lt.off); m != "" {
 			b = append(append(b, "; off "...), m...) // as the text above words it

@@ -813,8 +813,9 @@ func TestLightingTitleAfterMidnight(t *testing.T) {
 	if len(es) != 1 || !re.MatchString(es[0].Title) {
 		t.Fatalf("%+v; want one entry titled %s", es, re)
 	}
-	// the description marks the end as the title does
-	off := regexp.MustCompile(`, off at 00:3[5-7]:\d\d UTC-04:00 \+1 day \(6 h 5[1-3] min\)`)
+	// the description marks the end in words, with its date, in one
+	// bracket with the length
+	off := regexp.MustCompile(`, off at 00:3[5-7]:\d\d UTC-04:00 the next day \(Fri 2 Jan; 6 h 5[1-3] min\)`)
 	if !off.MatchString(es[0].Description) {
 		t.Errorf("description %q; want %s", es[0].Description, off)
 	}
@@ -889,7 +890,7 @@ func TestLightingLimitSkippedByTheClocks(t *testing.T) {
 			t.Fatalf("%s: %d entries, want one clipped period", tc.kind, len(es))
 		}
 		e := es[0]
-		if (tc.on != "" && !e.Start.Equal(at)) || (tc.off != "" && (!e.End.Equal(at) || !strings.Contains(e.Description, ", off at 01:30:00 EEST +1 day ("))) ||
+		if (tc.on != "" && !e.Start.Equal(at)) || (tc.off != "" && (!e.End.Equal(at) || !strings.Contains(e.Description, ", off at 01:30:00 EEST the next day (Sun 28 Mar; "))) ||
 			!strings.Contains(e.Description, tc.want) {
 			t.Errorf("%s: %s–%s %q\nwant the limit at %s and %q", tc.kind, e.Start, e.End, e.Description, at, tc.want)
 		}
@@ -990,7 +991,7 @@ func TestLightingLimitRepeatedByTheClocks(t *testing.T) {
 		t.Fatalf("%d entries, want one clipped period", len(es))
 	}
 	e := es[0]
-	if at := time.Date(2027, 10, 31, 0, 30, 0, 0, time.UTC); !e.End.Equal(at) || !strings.Contains(e.Description, ", off at 02:30:00 CEST +1 day") ||
+	if at := time.Date(2027, 10, 31, 0, 30, 0, 0, time.UTC); !e.End.Equal(at) || !strings.Contains(e.Description, ", off at 02:30:00 CEST the next day (Sun 31 Oct; ") ||
 		strings.Contains(e.Description, "moved") {
 		t.Errorf("%s–%s %q\nwant the lamps off at %s, 02:30:00 CEST", e.Start, e.End, e.Description, at)
 	}

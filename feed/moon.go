@@ -303,8 +303,9 @@ func describeMoon(s *siteInfo, e Event) (title, row, desc string) {
 		// the night is the row's (RowTitle)
 		row = "Dark sky, " + length
 		title = row + ", " + NightOf(e.Date, loc)
-		fmt.Fprintf(&b, "Dark sky on the %s from %s%s to %s%s (%s).",
-			NightOf(e.Date, loc), at, DayMark(e.Start, e.Date, loc), localClock(e.End, loc), DayMark(e.End, e.Date, loc), length)
+		fmt.Fprintf(&b, "Dark sky on the %s from ", NightOf(e.Date, loc))
+		b.Write(s.zone.appendSpanDays(nil, e.Start, e.End, e.Date))
+		b.WriteString(length + ").")
 		b.WriteString(clocksDuring(ToSecond(e.Start), ToSecond(e.End), loc))
 	default:
 		return e.Kind.String(), "", fmt.Sprintf("%s at %s.", e.Kind, at)

@@ -138,13 +138,13 @@ func TestLampLimitSkippedIntoMidnight(t *testing.T) {
 		skippedOn string
 	}{
 		{"latest_off", nuuk(), nuukSkip, "lighting:18h", "", "", "23:10", "2027-03-27", "2027-03-28T01:10:00Z",
-			"off at 00:10:00 UTC−01 +1 day (", "Sat 27 Mar 2027"},
+			"off at 00:10:00 UTC−01 the next day (Sun 28 Mar; ", "Sat 27 Mar 2027"},
 		{"earliest_on", nuuk(), nuukSkip, "lighting:22h", config.LampsMorning, "23:10", "", "2027-03-28", "2027-03-28T01:10:00Z",
 			"Morning lamps on at 00:10:00 UTC−01 (", "Sat 27 Mar 2027"},
 		{"latest_off, behind the skyline", behind, nuukSkip, "lighting:20h", "", "", "23:10", "2027-03-27", "2027-03-28T01:10:00Z",
-			"off at 00:10:00 UTC−01 +1 day (20 h; ", "Sat 27 Mar 2027"},
+			"off at 00:10:00 UTC−01 the next day (Sun 28 Mar; 20 h; ", "Sat 27 Mar 2027"},
 		{"latest_off, Havana", site(t, "havana", 23.13, -82.38, "America/Havana"), havanaSkip, "lighting:22h", "", "", "00:30", "2027-03-13", "2027-03-14T05:30:00Z",
-			"off at 01:30:00 CDT +1 day (", "Sun 14 Mar 2027"},
+			"off at 01:30:00 CDT the next day (Sun 14 Mar; ", "Sun 14 Mar 2027"},
 		{"earliest_on, Santiago", site(t, "santiago", -33.45, -70.67, "America/Santiago"), santiagoSkip, "lighting:22h", config.LampsMorning, "00:30", "", "2027-09-05", "2027-09-05T04:30:00Z",
 			"Morning lamps on at 01:30:00 UTC−03 (", "Sun 5 Sep 2027"},
 	} {

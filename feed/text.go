@@ -236,11 +236,6 @@ func (z *zoneCache) appendStamp(b []byte, t time.Time) []byte {
 	return append(b, name...)
 }
 
-// appendDayMark appends DayMark(t, d, z.loc) to b.
-func (z *zoneCache) appendDayMark(b []byte, t, d time.Time) []byte {
-	return appendDays(b, z.dayOf(UnixSecond(t))-floorDiv(d.Unix(), secondsPerDay))
-}
-
 // appendDays appends the mark of an instant n local dates after the date
 // it is listed under (see DayMark): nothing for 0, " +1 day", " −2 days".
 func appendDays(b []byte, n int64) []byte {
@@ -271,6 +266,54 @@ func appendOtherDay(b []byte, at, d time.Time) []byte {
 		return append(at.AppendFormat(append(b, " the day before ("...), "Mon 2 Jan"), ')')
 	}
 	return at.AppendFormat(append(b, " on "...), "Mon 2 Jan")
+}
+
+// appendDayOf appends, after the clock time of the instant t (as shown, to
+// the second) in a description of an entry listed under the local date d,
+// which date t falls on, in the words a plan's description uses: " the next
+// day (Sun 10 Jan)", " the day before (Sat 9 Jan)", " on Tue 12 Jan";
+// nothing when it is d. Titles and the listing's tables keep the short
+// mark (DayMark): " +1 day".
+func (z *zoneCache) appendDayOf(b []byte, t, d time.Time) []byte {
+	return appendOtherDay(b, z.dateOf(t), d)
+}
+
+// dateOf is the local date (00:00 UTC) of the instant t as shown, to the
+// second.
+func (z *zoneCache) dateOf(t time.Time) time.Time {
+	return time.Unix(z.dayOf(UnixSecond(t))*secondsPerDay, 0).UTC()
+}
+
+// appendDayBracket appends appendDayOf(t, d) and opens the bracket that
+// follows the clock time, so that one bracket holds the date and what the
+// caller writes next (a length): " the next day (Sun 10 Jan; " or " (".
+func (z *zoneCache) appendDayBracket(b []byte, t, d time.Time) []byte {
+	n := len(b)
+	if b = z.appendDayOf(b, t, d); len(b) > n && b[len(b)-1] == ')' {
+		return append(b[:len(b)-1], ';', ' ')
+	}
+	return append(b, ' ', '(')
+}
+
+// appendSpanDays appends "<start> to <end>" for a span listed under the
+// local date d, each clock time followed by its date when it is not d
+// (appendDayOf), an end on the start's date not marked again, and opens the
+// bracket after the end (appendDayBracket): "18:32:07 MST to 05:45:42 MST
+// the next day (Sun 10 Jan; ", "01:04:36 MDT the next day (Sun 7 Nov) to
+// 05:04:29 MST (".
+func (z *zoneCache) appendSpanDays(b []byte, start, end, d time.Time) []byte {
+	b = z.appendDayOf(z.appendClock(b, start), start, d)
+	return z.appendDayBracket(z.appendClock(append(b, " to "...), end), end, z.endRef(start, end, d))
+}
+
+// endRef is the date an end's date is said against (appendDayOf) in a span
+// from start listed under d: the start's date when the end falls on it,
+// said once after the start; else d.
+func (z *zoneCache) endRef(start, end, d time.Time) time.Time {
+	if sd := z.dateOf(start); sd.Equal(z.dateOf(end)) {
+		return sd
+	}
+	return d
 }
 
 // floorDiv is a/b rounded towards minus infinity (b > 0).
@@ -1193,12 +1236,12 @@ func appendDaily(b []byte, s *siteInfo, e *Event) (_ []byte, title string, ok bo
 		part, days, glow := spanPart(e, s.flatRise)
 		title = bt.title(part)
 		z := s.zone
-		b = z.appendDayMark(z.appendClock(append(append(b, title...), " from "...), e.Start), e.Start, e.Date)
+		b = append(append(b, title...), " from "...)
 		if e.Open {
+			b = z.appendDayOf(z.appendClock(b, e.Start), e.Start, e.Date)
 			b = append(b, " to past the end of this calendar"...)
 		} else {
-			b = z.appendDayMark(z.appendClock(append(b, " to "...), e.End), e.End, e.Date)
-			b = append(appendSpanLength(append(b, " ("...), span(e.Start, e.End)), ')')
+			b = append(appendSpanLength(z.appendSpanDays(b, e.Start, e.End, e.Date), span(e.Start, e.End)), ')')
 		}
 		switch {
 		case days:

@@ -263,7 +263,7 @@ func textsCovered(cals []*feed.Calendar) map[string]bool {
 			e := &c.Entries[i]
 			note("a plan description of several lines", e.Kind == "plan" && strings.Count(e.Description, "\n") >= 3)
 			note("a plan moved out of the hour the clocks skip", strings.Contains(e.Description, "the clocks skip"))
-			note(`a time on the next day, "+1 day"`, strings.Contains(e.Description, "+1 day"))
+			note(`a span's time on the next day, "the next day (…)"`, e.Kind != "plan" && strings.Contains(e.Description, " the next day ("))
 			note("a note for a date without the event", e.AllDay && e.Description != "" && strings.HasPrefix(e.Kind, "sun"))
 			note("a lamp period with its own alarm", strings.HasPrefix(e.Kind, "lighting:") && e.Alarm != nil)
 		}
@@ -285,7 +285,7 @@ func TestCatalogueFeedsReadBack(t *testing.T) {
 	}
 	has := textsCovered(cals)
 	for _, want := range []string{"a filter named in the calendar's description", "a plan description of several lines",
-		"a plan moved out of the hour the clocks skip", `a time on the next day, "+1 day"`,
+		"a plan moved out of the hour the clocks skip", `a span's time on the next day, "the next day (…)"`,
 		"a note for a date without the event", "a lamp period with its own alarm"} {
 		if !has[want] {
 			t.Errorf("no calendar has %s: the test no longer covers it", want)

@@ -834,7 +834,7 @@ func TestLampPeriodAcrossClockChange(t *testing.T) {
 		first, last, day, want string
 	}{
 		{"2027-10-30", "2027-11-01", "2027-10-31",
-			"Morning lamps on at 23:35:35 BST, off at 06:59:17 GMT (8 h 24 min). " +
+			"Morning lamps on at 23:35:35 BST the day before (Sat 30 Oct), off at 06:59:17 GMT (8 h 24 min). " +
 				"The clocks go back from summer time by 1 h during it: 02:00 BST becomes 01:00 GMT.\nNatural day 9 h 36 min; target 18 h."},
 		{"2027-03-27", "2027-03-29", "2027-03-28",
 			"Morning lamps on at 00:31:19 GMT, off at 06:48:26 BST (5 h 17 min). " +

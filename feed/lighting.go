@@ -894,6 +894,11 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		t = append(t, " +1 day"...) // the short mark of titles and the listing's tables (DayMark)
 	}
 	t = append(t, ' ', '(')
+	if s.zone.dayOf(UnixSecond(e.Start)) < e.Date.Unix()/secondsPerDay {
+		// a morning period of a long target, on after the sunset before:
+		// the row's time says it (its start's weekday), the title in words
+		t = append(t, fromEveningBefore...)
+	}
 	lamp := len(t)
 	// the length between the clock times as the title shows them, to the
 	// minute: 05:39:18 to 06:18:45 is 39 min 27 s, but 05:39–06:19 reads
@@ -924,7 +929,8 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 		// per feed
 		b := append(dst, lampLeads[pi]...)
 		b = append(b, byte('0'+on.h/10), byte('0'+on.h%10), ':', byte('0'+on.m/10), byte('0'+on.m%10), ':', byte('0'+on.s/10), byte('0'+on.s%10), ' ')
-		b = append(b, on.zone...)
+		// a morning's start the evening before: " the day before (Sat 30 Oct)"
+		b = s.zone.appendDayOf(append(b, on.zone...), e.Start, e.Date)
 		said := false // a limit the clocks move, said with the change
 		if l.Clipped && pi == 0 && on.second() != lt.onSec {
 			if m := movedLimit(s.zone, e.Start, lt.on); m != "" {
@@ -960,7 +966,7 @@ func (lt *lightingText) appendDescription(dst, title []byte, s *siteInfo, e *Eve
 	default:
 		b = append(b, "Evening lamps on at "...)
 	}
-	b = on.appendSecond(b)
+	b = s.zone.appendDayOf(on.appendSecond(b), e.Start, e.Date)
 	said := false // as above
 	if l.Clipped && e.Part != partEvening && lt.onSec >= 0 && on.second() != lt.onSec {
 		if m := movedLimit(s.zone, e.Start, lt.on); m != "" {
@@ -1044,6 +1050,12 @@ func appendTail(b []byte, said bool, tail string, on, off shownClock, e *Event, 
 	return append(append(append(b, tail[:i]...), clocksDuring(ToSecond(e.Start), ToSecond(e.End), z.loc)...), tail[i:]...)
 }
 
+// fromEveningBefore leads the bracket of a lamp period's title whose start
+// is on the date before the period's (a morning period of a long target,
+// on after the sunset before): "Lamps on 18:24–10:11 (from the evening
+// before, 15 h 47 min, to reach 20 h)".
+const fromEveningBefore = "from the evening before, "
+
 // otherLamps name the other period of lamps: both, after a morning (0) or
 // an evening (1) period's length.
 var otherLamps = [2]string{"; evening lamps ", "; morning lamps "}
@@ -1068,6 +1080,9 @@ func (lt *lightingText) appendOtherLamps(b []byte, s *siteInfo, e *Event, pi int
 	}
 	if s.zone.dayOf(last) != e.Date.Unix()/secondsPerDay {
 		b = append(b, " +1 day"...)
+	}
+	if s.zone.dayOf(UnixSecond(from)) < e.Date.Unix()/secondsPerDay {
+		b = append(append(b, ", "...), fromEveningBefore[:len(fromEveningBefore)-2]...)
 	}
 	return appendHM(append(b, ',', ' '), time.Duration(off.minute-on.minute)*time.Second) // as the clock times read
 }

@@ -1027,3 +1027,42 @@ func clockSpan(t *testing.T, from, to string, unit int) time.Duration {
 	}
 	return b.Sub(a)
 }
+
+// A morning period of a long target that goes on the evening before its
+// date says so in its title ("from the evening before"), as an evening
+// period's end after midnight is marked "+1 day", and its description
+// names that date in the words a plan's uses; the row of the date keeps
+// the length alone (its time column shows the start's date). At 52.95° N,
+// 1.05° W (sea level, Europe/London) the Sun rises at 06:59:17 UT on 31
+// October 2027 and sets at 16:35:35 UT (PyEphem 4.1.4: pressure 0, the
+// Sun's centre at −50′): a natural day of 9 h 36 min, so lighting:18h in
+// the morning runs 8 h 24 min, from 22:35:35 UT (23:35:35 BST) on Saturday
+// 30 October. On 28 March 2027 the same period goes on at 00:31:19 GMT, on
+// its own date (TestLampPeriodAcrossClockChange), and says nothing of it.
+func TestMorningLampsFromTheEveningBefore(t *testing.T) {
+	s := site(t, "Thistlewick Barn", 52.95, -1.05, "Europe/London")
+	spec := lightingSpec(t, "lighting:18h", func(ks *config.KindSpec) { ks.Lamps = config.LampsMorning })
+	for _, c := range []struct {
+		day, title, desc, row string
+	}{
+		{"2027-10-31", "Lamps on 23:36–06:59 (from the evening before, 8 h 23 min, to reach 18 h)",
+			"Morning lamps on at 23:35:35 BST the day before (Sat 30 Oct), off at 06:59:17 GMT (8 h 24 min).",
+			"Lamps on for 8 h 23 min, to reach 18 h"},
+		{"2027-03-28", "Lamps on 00:31–06:48 (5 h 17 min, to reach 18 h)",
+			"Morning lamps on at 00:31:19 GMT, off at 06:48:26 BST (5 h 17 min).",
+			"Lamps on for 5 h 17 min, to reach 18 h"},
+	} {
+		sk := sky(t, c.day, c.day)
+		es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{spec}, date(c.day), date(c.day))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(es) != 1 {
+			t.Fatalf("%s: %d entries, want one period: %+v", c.day, len(es), es)
+		}
+		e := &es[0]
+		if e.Title != c.title || !strings.HasPrefix(e.Description, c.desc) || RowTitle(e) != c.row {
+			t.Errorf("%s: title %q, row %q, description %q\nwant %q, %q, %q", c.day, e.Title, RowTitle(e), e.Description, c.title, c.row, c.desc)
+		}
+	}
+}

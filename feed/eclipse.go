@@ -225,6 +225,50 @@ func skylineText(s *siteInfo, e Event, x *EclipseFacts, body, title string, phas
 	return b.String(), title + " (partly behind the skyline)"
 }
 
+// aboveHorizon says, for an eclipse from start to end during which the
+// body ("Sun", "Moon") rises or sets (hs, in order; up: whether it is
+// above the horizon at start), when it is above the horizon, which is what
+// the site sees of the entry's span (the whole eclipse): "The Moon is above
+// the horizon, so seen from the site, from moonrise at 07:36:26 UTC to the
+// end of the eclipse at 09:03:09 UTC: 1 h 27 min of the eclipse's 3 h 39
+// min.\n", each time on another date than d followed by that date
+// (appendDayOf); rise and set name the body's rising and setting
+// ("moonrise", "moonset"). "" when it neither rises nor sets.
+func aboveHorizon(s *siteInfo, body string, hs []astro.HorizonEvent, up bool, start, end, d time.Time, rise, set string) string {
+	if len(hs) == 0 {
+		return ""
+	}
+	z := s.zone
+	b := append(append([]byte("The "), body...), " is above the horizon, so seen from the site,"...)
+	var seen time.Duration
+	from, fromWords, n := start, "the start of the eclipse", 0
+	span := func(to time.Time, toWords string) {
+		if n > 0 {
+			b = append(b, " and"...)
+		}
+		n++
+		b = append(append(append(b, " from "...), fromWords...), " at "...)
+		b = z.appendDayOf(z.appendClock(b, from), from, d)
+		b = append(append(append(b, " to "...), toWords...), " at "...)
+		b = z.appendDayOf(z.appendClock(b, to), to, d)
+		seen += ToSecond(to).Sub(ToSecond(from))
+	}
+	for _, h := range hs {
+		switch {
+		case h.Direction == astro.Rising && !up:
+			from, fromWords, up = h.Time, rise, true
+		case h.Direction == astro.Setting && up:
+			span(h.Time, set)
+			up = false
+		}
+	}
+	if up {
+		span(end, "the end of the eclipse")
+	}
+	b = append(appendHM(append(b, ": "...), seen), " of the eclipse's "...)
+	return string(append(appendHM(b, ToSecond(end).Sub(ToSecond(start))), ".\n"...))
+}
+
 // placeAt is bodyPlace, with "behind the skyline" for a body above the
 // horizon but behind the site's skyline.
 func placeAt(x *EclipseFacts, body string, c astro.Contact) string {
@@ -242,6 +286,9 @@ func describeSolar(s *siteInfo, e Event, x *EclipseFacts) (string, string) {
 	var b strings.Builder
 	fmt.Fprintf(&b, "%s solar eclipse seen from %s, %s to %s%s.\n", Capital(typ), s.where,
 		localClock(l.C1.Time, loc), localClock(l.C4.Time, loc), s.zone.appendDayOf(nil, l.C4.Time, e.Date))
+	if !x.Skyline { // else the skyline's text below says it
+		b.WriteString(aboveHorizon(s, "Sun", l.Horizon, l.C1.Up, l.C1.Time, l.C4.Time, e.Date, "sunrise", "sunset"))
+	}
 	line := func(name string, c astro.Contact, extra string) {
 		fmt.Fprintf(&b, "%s %s; %s%s.\n", localClock(c.Time, loc), name, placeAt(x, "Sun", c), extra)
 	}
@@ -299,10 +346,12 @@ func describeSolar(s *siteInfo, e Event, x *EclipseFacts) (string, string) {
 	}
 	switch {
 	case x.Skyline: // the skyline's suffix instead
+	// the entry spans the whole eclipse; the title says which part of it
+	// the site sees, the description when (aboveHorizon)
 	case len(l.Horizon) > 0 && l.Horizon[0].Direction == astro.Rising:
-		title += " (at sunrise)"
+		title += " (seen from sunrise)"
 	case len(l.Horizon) > 0:
-		title += " (at sunset)"
+		title += " (seen until sunset)"
 	}
 	_, title = skylineText(s, e, x, "Sun", title, eclipsed)
 	return title, b.String()
@@ -316,6 +365,9 @@ func describeLunar(s *siteInfo, ev Event, x *EclipseFacts) (string, string) {
 	var b strings.Builder
 	fmt.Fprintf(&b, "%s lunar eclipse seen from %s, %s to %s%s.\n", Capital(typ), s.where,
 		localClock(l.P1.Time, loc), localClock(l.P4.Time, loc), s.zone.appendDayOf(nil, l.P4.Time, ev.Date))
+	if !x.Skyline { // else the skyline's text below says it
+		b.WriteString(aboveHorizon(s, "Moon", l.Horizon, l.P1.Up, l.P1.Time, l.P4.Time, ev.Date, "moonrise", "moonset"))
+	}
 	line := func(name string, c astro.Contact, extra string) {
 		if c.IsZero() {
 			return
@@ -375,10 +427,10 @@ func describeLunar(s *siteInfo, ev Event, x *EclipseFacts) (string, string) {
 	case x.Skyline: // the skyline's suffix instead
 	case rises && sets:
 		title += " (the Moon rises and sets during it)"
-	case rises:
-		title += " (at moonrise)"
+	case rises: // as the solar eclipse's
+		title += " (seen from moonrise)"
 	case sets:
-		title += " (at moonset)"
+		title += " (seen until moonset)"
 	}
 	_, title = skylineText(s, ev, x, "Moon", title, phase)
 	return title, b.String()

@@ -62,7 +62,7 @@ func TestEclipseEntriesVienna(t *testing.T) {
 			t.Errorf("solar description lacks %q:\n%s", want, sol.Description)
 		}
 	}
-	if !strings.HasSuffix(sol.Title, "(at sunset)") || !strings.Contains(sol.Title, "89 %") {
+	if !strings.HasSuffix(sol.Title, "(seen until sunset)") || !strings.Contains(sol.Title, "89 %") {
 		t.Errorf("solar title %q", sol.Title)
 	}
 	for _, want := range []string{"Partial lunar eclipse", "umbral magnitude 0.930", "The Moon sets at 06:14",
@@ -74,7 +74,7 @@ func TestEclipseEntriesVienna(t *testing.T) {
 	// the umbral magnitude is the fraction of the Moon's diameter in the
 	// umbra, not of its area (the definition of Espenak & Meeus, Five
 	// Millennium Canon of Lunar Eclipses, NASA/TP-2009-214172; from memory)
-	if lun.Title != "Partial lunar eclipse: 93 % of the Moon's diameter in the Earth's shadow (at moonset)" {
+	if lun.Title != "Partial lunar eclipse: 93 % of the Moon's diameter in the Earth's shadow (seen until moonset)" {
 		t.Errorf("lunar title %q", lun.Title)
 	}
 	if got := strings.Join(sol.Categories, ","); got != "Sun,Solar eclipse" {
@@ -138,7 +138,7 @@ func TestEclipseAtSunset(t *testing.T) {
 			t.Errorf("description lacks %q:\n%s", want, es[0].Description)
 		}
 	}
-	if es[0].Title != "Partial solar eclipse: 5 % of the Sun's diameter covered (at sunset)" {
+	if es[0].Title != "Partial solar eclipse: 5 % of the Sun's diameter covered (seen until sunset)" {
 		t.Errorf("title %q", es[0].Title)
 	}
 }
@@ -232,8 +232,8 @@ func TestEclipseBehindSkyline(t *testing.T) {
 				t.Errorf("%s lacks %q:\n%s\n%s", date, w, e.Title, e.Description)
 			}
 		}
-		if strings.Contains(e.Title, "(at sunset)") {
-			t.Errorf("%s: title %q speaks of the flat horizon's sunset", date, e.Title)
+		if strings.Contains(e.Title, "(seen until sunset)") || strings.Contains(e.Description, "above the horizon, so seen") {
+			t.Errorf("%s: title %q or description speaks of the flat horizon's sunset:\n%s", date, e.Title, e.Description)
 		}
 	}
 	flat := site(t, "flat", 47.05, 11.2, "Europe/Vienna")
@@ -313,5 +313,34 @@ func TestEclipseRiseSetAsEntries(t *testing.T) {
 		if want := c.body + ev.Start.Round(time.Second).Format("15:04:05") + " UTC"; !strings.Contains(ecl.Description, want) {
 			t.Errorf("%s at %v, %v: the eclipse's description lacks %q:\n%s", c.day, c.lat, c.lon, want, ecl.Description)
 		}
+	}
+}
+
+// An eclipse entry spans the whole eclipse, from its first contact, as its
+// start in every output and the contacts in its description do; one the
+// body rises or sets during says in its title which part the site sees and
+// in its description when, near the top: the penumbral lunar eclipse of 17
+// August 2027 at 31.27° S, 149.07° E (sea level, UTC) begins at 05:24:29
+// UT and ends at 09:03:12 UT (Swiss Ephemeris 2.10.03, as
+// TestEclipseFirstLineMarksNextDay; 10 s), and the Moon rises at
+// 07:36:26.552 UT (PyEphem 4.1.4: pressure 0, the Moon's upper limb at
+// −34′, topocentric; 1 s), 1 h 27 min before the end.
+func TestEclipseSaysWhenItIsSeen(t *testing.T) {
+	s := site(t, "here", -31.27, 149.07, "UTC")
+	es := eclipseEntries(t, s, "2027-08-17", "2027-08-17", "lunar-eclipse")
+	if len(es) != 1 {
+		t.Fatalf("%d entries, want the eclipse of 17 August: %+v", len(es), es)
+	}
+	e := es[0]
+	nearTime(t, "first contact", e.Start, "2027-08-17T05:24:29Z", 10*time.Second)
+	nearTime(t, "last contact", e.End, "2027-08-17T09:03:12Z", 10*time.Second)
+	if want := "Penumbral lunar eclipse: a slight dimming of the Moon (seen from moonrise)"; e.Title != want {
+		t.Errorf("title %q, want %q", e.Title, want)
+	}
+	lines := strings.Split(e.Description, "\n")
+	re := regexp.MustCompile(`^The Moon is above the horizon, so seen from the site, from moonrise at 07:36:2[67] UTC ` +
+		`to the end of the eclipse at 09:03:(0\d|1[0-2]) UTC: 1 h 27 min of the eclipse's 3 h 3[89] min\.$`)
+	if len(lines) < 2 || !re.MatchString(lines[1]) {
+		t.Errorf("description's second line, want %s:\n%s", re, e.Description)
 	}
 }

@@ -353,6 +353,15 @@ func describeMoonNote(s *siteInfo, n Note) (title, row, desc string) {
 	return title, "", title + "."
 }
 
+// ClocksDuring is the sentence a span's description writes when the clocks
+// of loc change between start and end (each as shown, to the second: see
+// ToSecond), without its leading space: "The clocks go back from summer
+// time by 1 h during it: 03:00 AEDT becomes 02:00 AEST."; "" when they do
+// not change. The served day-by-day tables write it beside such a row.
+func ClocksDuring(start, end time.Time, loc *time.Location) string {
+	return strings.TrimPrefix(clocksDuring(ToSecond(start), ToSecond(end), loc), " ")
+}
+
 // clocksDuring says how the clocks of loc change between start and end, "
 // The clocks go back from summer time by 1 h during it: 03:00 AEDT becomes
 // 02:00 AEST." (Australia/Melbourne, 4 April 2027), so that a span's clock

@@ -1007,11 +1007,15 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 		default: // the date of a move is not said twice either
 			b = appendMoved(b, em, eMoved, time.Time{}, next.IsZero() || !ed.Equal(next))
 		}
-		if across {
-			b = append(b, back...)
-		}
 	}
 	b = append(b, '.')
+	// a change of the clocks the plan lasts across, in the sentence the
+	// dark windows and lamp periods write: its clock times are nearer or
+	// further apart than its length; not when a time beside it has said
+	// the change (moved, or shown twice)
+	if !en.End.IsZero() && (across || !sMoved && !eMoved) {
+		b = append(b, clocksDuring(ToSecond(start), ToSecond(en.End), z.loc)...)
+	}
 	// the legal caution is for times the sky sets; a plan from 23:30 to
 	// 00:30 by the clock has none
 	if !pl.start.IsClock || (pl.end != nil && !pl.end.IsClock) {

@@ -1076,3 +1076,23 @@ func TestBrowserUnderPathPrefix(t *testing.T) {
 		t.Errorf("the pages under /calendars/ asked at the site's root for %q", r)
 	}
 }
+
+// The builder's preview says, beside a row whose span the clocks change
+// during, how they change, as the entry's description and the table page
+// do: the dark window of the night of 13–14 March 2027 at Havana, whose
+// clocks go from 00:00 CST to 01:00 CDT on the 14th (zdump, tz database).
+func TestBrowserPreviewClockChangeDuringARow(t *testing.T) {
+	ts := builderServer(t)
+	ctx := browser(t)
+	if err := chromedp.Do(ctx, havanaPreview(ts.URL, "2027-03-12", "dark-window")); err != nil {
+		t.Fatal(err)
+	}
+	said, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](`[...document.querySelectorAll("#preview li .during")]
+  .map(s => s.closest("tr").querySelector("th").textContent + ": " + s.parentElement.dataset.kind + ": " + s.textContent)`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if want := "Sat 2027-03-13: dark-window: The clocks go forward for summer time by 1\u00a0h during it: 00:00 CST becomes 01:00 CDT."; len(said) != 1 || said[0] != want {
+		t.Errorf("the preview says of the clocks during its rows %q, want %q", said, want)
+	}
+}

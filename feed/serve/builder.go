@@ -204,6 +204,11 @@ type previewEntry struct {
 	// and with its zone's label when it is in the hour the clocks show
 	// twice: "00:48 CDT", "00:12 CST" (clockOn).
 	When string `json:"when,omitempty"`
+	// Clocks says that the clocks change during the span, whose clock
+	// times they put nearer or further apart than its length, in the words
+	// of the feeds' descriptions (feed.ClocksDuring): "The clocks go back
+	// from summer time by 1 h during it: 02:00 MDT becomes 01:00 MST."
+	Clocks string `json:"clocks,omitempty"`
 	// Open marks a band's span not left before these days end (near a
 	// pole): it has no end, and When reads "from 02:24".
 	Open bool `json:"open,omitempty"`
@@ -663,6 +668,7 @@ func days(cal *feed.Calendar, q AdhocQuery) []previewDay {
 				} else {
 					pe.When += "–" + pe.End + twiceLabel(end)
 				}
+				pe.Clocks = feed.ClocksDuring(e.Start, e.End, loc)
 			}
 		}
 		out[i].Entries = append(out[i].Entries, pe)

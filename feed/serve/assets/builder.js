@@ -162,6 +162,13 @@ function render(res) {
         li.appendChild(document.createTextNode(" "));
       }
       li.appendChild(document.createTextNode(keepUnits(e.title)));
+      if (e.clocks) {
+        // a change of the clocks during the span, as its description says
+        const c = document.createElement("span");
+        c.className = "during";
+        c.textContent = keepUnits(e.clocks);
+        li.append(" ", c);
+      }
       ul.appendChild(li);
     }
     if (day.entries.length) td.appendChild(ul);

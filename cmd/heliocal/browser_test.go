@@ -648,8 +648,13 @@ const dateBreaks = `[...document.querySelectorAll("table.days tbody th")].flatMa
 // introDates lists the dates of the line under the /at table page's
 // heading ("… · times in Arctic/Longyearbyen · 2026-12-04 to 2027-01-02")
 // as they are shown: "2026-12-" over "04" when a line break splits one.
-const introDates = `(() => {
-  const p = document.querySelector(".intro"), r = document.createRange(), chars = [];
+var introDates = datesShown(".intro")
+
+// datesShown lists the dates (YYYY-MM-DD) of the element the CSS selector
+// sel picks as they are shown, as introDates does.
+func datesShown(sel string) string {
+	return `(() => {
+  const p = document.querySelector(` + strconv.Quote(sel) + `), r = document.createRange(), chars = [];
   const walk = document.createTreeWalker(p, NodeFilter.SHOW_TEXT);
   for (let node = walk.nextNode(); node; node = walk.nextNode()) {
     for (let i = 0; i < node.length; i++) {
@@ -667,6 +672,7 @@ const introDates = `(() => {
     return JSON.stringify(out);
   });
 })()`
+}
 
 // On a phone the dates of the day-by-day table (/at) and of the builder's
 // preview are never split over two lines, down to a 320 px screen.
@@ -692,11 +698,27 @@ func TestBrowserDatesWhole(t *testing.T) {
 		chromedp.WaitVisible(chromedp.ID("lat")),
 		chromedp.SendKeys(chromedp.ID("lat"), "-33.45"),
 		chromedp.SendKeys(chromedp.ID("lon"), "-70.67"),
-		chromedp.Poll[chromedp.Void](`document.querySelector("#preview th") !== null`),
+		chromedp.SetValue(chromedp.ID("start"), "2026-12-05"),
+		chromedp.Evaluate[chromedp.Void](`document.getElementById("builder").dispatchEvent(new Event("input"))`),
+		chromedp.Poll[chromedp.Void](`document.getElementById("days-h").textContent.endsWith("2026-12-05")`),
 	); err != nil {
 		t.Fatal(err)
 	}
-	noneSplit(t, ctx, dateBreaks, "the builder's preview at 320 px", "dates")
+	// The preview's heading, "Seven days from Sat 2026-12-05", had its date
+	// split after "2026-12-" on a 375 px phone.
+	for _, w := range []int64{320, 375, 412} {
+		if err := chromedp.Do(ctx, chromedp.EmulateViewport(w, 800)); err != nil {
+			t.Fatal(err)
+		}
+		noneSplit(t, ctx, dateBreaks, fmt.Sprintf("the builder's preview at %d px", w), "dates")
+		heading, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](datesShown("#days-h")))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if strings.Join(heading, " ") != `"2026-12-05"` {
+			t.Errorf("the preview's heading at %d px shows its date as %s, want it on one line", w, strings.Join(heading, " and "))
+		}
+	}
 }
 
 // On a tablet and a desk the day-by-day table (/at) keeps its date column

@@ -122,7 +122,13 @@ function render(res) {
   // ones or not
   // (fewer for a link's table of fewer days)
   const n = res.days.length;
-  if (n) $("days-h").textContent = (n === 7 ? "Seven days" : n === 1 ? "1 day" : n + " days") + " from " + res.days[0].weekday + " " + res.days[0].date;
+  if (n) {
+    // the date kept whole on one line, as the table's dates are
+    const date = document.createElement("span");
+    date.className = "date";
+    date.textContent = res.days[0].date;
+    $("days-h").replaceChildren((n === 7 ? "Seven days" : n === 1 ? "1 day" : n + " days") + " from " + res.days[0].weekday + " ", date);
+  }
   // a date not chosen shows the first day previewed: today at the place
   const start = $("start");
   if (res.days.length && start.value === start.defaultValue) start.defaultValue = start.value = res.days[0].date;

@@ -1118,3 +1118,37 @@ func TestBrowserPreviewClockChangeDuringARow(t *testing.T) {
 		t.Errorf("the preview says of the clocks during its rows %q, want %q", said, want)
 	}
 }
+
+// smallTargets lists the builder's controls shown that a finger may miss:
+// an input, button or button-styled link under 44 by 44 CSS pixels, the
+// target size of WCAG 2.1 SC 2.5.5. A checkbox is left out: its label
+// beside it, the kind's name and explanation, is the larger target.
+const smallTargets = `[...document.querySelectorAll("input, button, a.button")].filter(el => {
+  if (el.type === "hidden" || el.type === "checkbox") return false;
+  const r = el.getBoundingClientRect();
+  return r.width > 0 && (r.width < 44 || r.height < 44);
+}).map(el => { const r = el.getBoundingClientRect(); return (el.id || el.textContent.trim()) + " " + Math.round(r.width) + "×" + Math.round(r.height) + " px"; })`
+
+// On a 375 px and a 412 px phone every field of the builder, its shifts'
+// minutes included, and every button is at least 44 px tall and wide: the
+// fields were 40 px tall and the shifts' 32 px.
+func TestBrowserTouchTargets(t *testing.T) {
+	ts := builderServer(t)
+	ctx := browser(t)
+	for _, w := range []int64{375, 412} {
+		if err := chromedp.Do(ctx,
+			chromedp.EmulateViewport(w, 800),
+			chromedp.Navigate(ts.URL+"/?lat=57.05&lon=-3.65&tz=Europe/London&kinds=sunset,dark-window&start=2026-12-05"),
+			chromedp.Poll[chromedp.Void](`document.getElementById("result").classList.contains("ready")`),
+		); err != nil {
+			t.Fatal(err)
+		}
+		small, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](smallTargets))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(small) > 0 {
+			t.Errorf("at %d px, controls under 44 by 44 px: %s", w, strings.Join(small, "; "))
+		}
+	}
+}

@@ -45,6 +45,14 @@ func unitBreaksIn(sel string) string {
 })`
 }
 
+// dayMonthBreaks lists the dates written in words ("21 Jun", "5 Dec 2026",
+// "12–13 February 2027") in the text of the elements the CSS selector sel
+// picks that a line break splits, as unitBreaksIn does for amounts.
+func dayMonthBreaks(sel string) string {
+	return strings.Replace(unitBreaksIn(sel), `/\d+[ \u00a0](?:h|min|s|days?|k?m)(?:[ \u00a0]\d+[ \u00a0]min)?(?![A-Za-z])/g`,
+		`/\d+[ \u00a0](?:Jan|Feb|Mar|Apr|May|Jun|Jul|Aug|Sep|Oct|Nov|Dec)[a-z]*(?:[ \u00a0]\d{4})?(?![A-Za-z0-9])/g`, 1)
+}
+
 // On a phone the day-by-day table (/at) and the builder's preview keep a
 // number and its unit on one line, and the hours and minutes of a length:
 // the page joins them with a no-break space (U+00A0); the feeds and the
@@ -81,9 +89,12 @@ func TestBrowserUnitsWhole(t *testing.T) {
 }
 
 // The index page publish writes keeps a number and its unit on one line
-// on a 390 px and a 320 px phone, as the page /at does: the charts'
+// on a 412, 390, 375 and 320 px phone, as the page /at does: the charts'
 // captions ("up to 14 h 30 min", "on 176 days"), the feeds' descriptions,
-// the sites' elevations. The feeds and feeds.json keep their plain spaces.
+// the sites' elevations; and a date's day, month and year in the charts'
+// captions ("(21 Jun)" had "Jun" alone on the next line at 412 px, "5 Dec
+// 2026" its year at 375 px). The feeds and feeds.json keep their plain
+// spaces.
 func TestBrowserPublishedIndexUnitsWhole(t *testing.T) {
 	ctx := browser(t)
 	out := t.TempDir()
@@ -91,11 +102,12 @@ func TestBrowserPublishedIndexUnitsWhole(t *testing.T) {
 		t.Fatalf("publish: exit %d: %s", code, errOut)
 	}
 	page := "file://" + filepath.Join(out, "index.html")
-	for _, w := range []int64{390, 320} {
+	for _, w := range []int64{412, 390, 375, 320} {
 		if err := chromedp.Do(ctx, chromedp.EmulateViewport(w, 800), chromedp.Navigate(page)); err != nil {
 			t.Fatal(err)
 		}
 		noneSplit(t, ctx, unitBreaksIn("header p, p.place, figcaption, main td"), fmt.Sprintf("the index page at %d px", w), "amounts")
+		noneSplit(t, ctx, dayMonthBreaks("figcaption"), fmt.Sprintf("the index page at %d px", w), "dates")
 	}
 	files, err := filepath.Glob(filepath.Join(out, "*.*"))
 	if err != nil || len(files) < 3 {

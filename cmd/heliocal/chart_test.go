@@ -414,7 +414,7 @@ feeds:
 	if got := drawnCrossings(short); fmt.Sprint(got) != fmt.Sprint(crossings) {
 		t.Errorf("12 h crossings drawn on %v, the feed has them on %v", got, crossings)
 	}
-	if want := "Lamp periods, photoperiod crossings and dark windows of the feed mall-spring drawn from 25 Dec 2023, in the shaded weeks before today, to 30 Apr, the dates it holds."; !strings.Contains(page, want) {
+	if want := "Lamp periods, photoperiod crossings and dark windows of the feed mall-spring drawn from 25 Dec 2023, in the shaded weeks before today, to 30 Apr, the dates it holds."; !strings.Contains(pageWords(page), want) {
 		t.Errorf("the caption does not say %q", want)
 	}
 

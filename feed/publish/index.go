@@ -330,7 +330,7 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{
 <span class="key thr"></span>photoperiod threshold crossings{{end}}{{if .Today}},
 <span class="key today"></span>today{{if ne .Today.PastW "0"}} (the weeks before it shaded){{end}}{{end}}; along the top,
 <svg class="swatch moonkey" viewBox="0 0 10 10" width="10" height="10" aria-hidden="true"><circle class="moon" cx="5" cy="5" r="3.5"/></svg>new and
-<svg class="swatch moonkey" viewBox="0 0 10 10" width="10" height="10" aria-hidden="true"><circle class="moon full" cx="5" cy="5" r="3.5"/></svg>full Moon.{{if .Marks}} <span class="key mark"></span>Red lines:{{range $i, $m := .Marks}}{{if $i}};{{end}} {{units $m.Label}} ({{$m.Date}}){{end}}.{{end}}{{with .Held}} {{units .}}{{end}}</figcaption>
+<svg class="swatch moonkey" viewBox="0 0 10 10" width="10" height="10" aria-hidden="true"><circle class="moon full" cx="5" cy="5" r="3.5"/></svg>full Moon.{{if .Marks}} <span class="key mark"></span>Red lines:{{range $i, $m := .Marks}}{{if $i}};{{end}} {{units $m.Label}} ({{units $m.Date}}){{end}}.{{end}}{{with .Held}} {{units .}}{{end}}</figcaption>
 </figure>
 {{end}}<table>
 <thead><tr><th>Feed</th><th class="num">Events</th><th class="num">Size</th><th>Subscribe</th></tr></thead>

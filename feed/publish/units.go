@@ -2,17 +2,25 @@ package publish
 
 import "strings"
 
-// KeepUnits joins the amounts of a text of the HTML pages (this package's
-// index page; feed/serve's page /at) with no-break spaces (U+00A0), so that
-// a narrow screen does not put "16" at the end of one line and "h" on the
-// next; the feeds, JSON and CSV keep their plain spaces. feed/serve's
-// builder.js has its twin for the builder's preview, written as the two
-// regular expressions these scans follow.
+// KeepUnits joins the amounts and the dates of a text of the HTML pages
+// (this package's index page; feed/serve's page /at) with no-break spaces
+// (U+00A0), so that a narrow screen does not put "16" at the end of one
+// line and "h" on the next, nor "21" and "Jun" of a date; the feeds, JSON
+// and CSV keep their plain spaces. feed/serve's builder.js has its twin for
+// the builder's preview, written as the four regular expressions these
+// scans follow.
 func KeepUnits(s string) string {
 	if !strings.Contains(s, " ") {
 		return s
 	}
-	return joinSpaces(joinSpaces(s, unitSpace), hourMinute)
+	return joinSpaces(joinSpaces(s, unitSpace), afterUnits)
+}
+
+// afterUnits is the space that hourMinute, dayMonth or monthYear joins, in
+// one scan once unitSpace has joined the amounts (hourMinute reads its
+// no-break spaces; the dates' tests read no space of another).
+func afterUnits(s string, i int) bool {
+	return hourMinute(s, i) || dayMonth(s, i) || monthYear(s, i)
 }
 
 // joinSpaces is s with each space for which joins(s, i) holds, i its
@@ -73,6 +81,42 @@ func hourMinute(s string, i int) bool {
 		j++
 	}
 	return j > i+1 && strings.HasPrefix(s[j:], "\u00a0min")
+}
+
+// monthNames are the names of the months, whole and shortened, that dayMonth
+// and monthYear join to their day and year.
+var monthNames = []string{"January", "February", "March", "April", "May", "June", "July", "August", "September",
+	"October", "November", "December", "Jan", "Feb", "Mar", "Apr", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"}
+
+// monthAt is the length of the month's name s starts with, followed by
+// no letter or digit; 0 when there is none.
+func monthAt(s string) int {
+	for _, m := range monthNames {
+		if strings.HasPrefix(s, m) && (len(s) == len(m) || !isWordByte(s[len(m)])) {
+			return len(m)
+		}
+	}
+	return 0
+}
+
+// dayMonth is the space between a date's day and its month ("21 Jun",
+// "5 December"): `(\d) (Month)\b`, Month one of monthNames.
+func dayMonth(s string, i int) bool {
+	return i > 0 && isDigit(s[i-1]) && monthAt(s[i+1:]) > 0
+}
+
+// monthYear is the space between a date's month and its year ("Dec 2026"):
+// `\b(Month) (\d{4})\b`.
+func monthYear(s string, i int) bool {
+	if i+5 > len(s) || !isDigit(s[i+1]) || !isDigit(s[i+2]) || !isDigit(s[i+3]) || !isDigit(s[i+4]) || i+5 < len(s) && isWordByte(s[i+5]) {
+		return false
+	}
+	for _, m := range monthNames {
+		if j := i - len(m); j >= 0 && s[j:i] == m && (j == 0 || !isWordByte(s[j-1])) {
+			return true
+		}
+	}
+	return false
 }
 
 func isDigit(c byte) bool { return '0' <= c && c <= '9' }

@@ -14,7 +14,10 @@ import (
 func TestKeepUnits(t *testing.T) {
 	for _, tc := range []struct{ in, want string }{
 		{"Daylight 6 h 17 min", "Daylight 6\u00a0h\u00a017\u00a0min"},
-		{"to reach 16 h on 5 Jun", "to reach 16\u00a0h on 5 Jun"},
+		{"to reach 16 h on 5 Jun", "to reach 16\u00a0h on 5\u00a0Jun"},
+		{"from 5 Dec 2026 to 4 Dec 2027 (21 June)", "from 5\u00a0Dec\u00a02026 to 4\u00a0Dec\u00a02027 (21\u00a0June)"},
+		{"night of 12–13 February 2027, May 2026", "night of 12–13\u00a0February\u00a02027, May\u00a02026"},
+		{"5 Mayor 2026, 5 Decembers, Junk 2026, Dec 20265, xDec 2026, 3 may", "5 Mayor 2026, 5 Decembers, Junk 2026, Dec 20265, xDec 2026, 3 may"},
 		{"Lamp periods on 176 days, +1 day", "Lamp periods on 176\u00a0days, +1\u00a0day"},
 		{"elevation 240 m, 1.5 km away, 30 s", "elevation 240\u00a0m, 1.5\u00a0km away, 30\u00a0s"},
 		{"12 hours, 3 minutes, 5 mice, 2026 spring", "12 hours, 3 minutes, 5 mice, 2026 spring"},
@@ -70,7 +73,11 @@ func TestIndexKeepsUnits(t *testing.T) {
 func keepUnitsRE(s string) string {
 	unit := regexp.MustCompile(`(\d) (h|min|s|days?|k?m)\b`)
 	hm := regexp.MustCompile("(\\d\u00a0h) (\\d+\u00a0min)")
-	return hm.ReplaceAllString(unit.ReplaceAllString(s, "$1\u00a0$2"), "$1\u00a0$2")
+	const month = `(January|February|March|April|May|June|July|August|September|October|November|December|Jan|Feb|Mar|Apr|Jun|Jul|Aug|Sep|Oct|Nov|Dec)\b`
+	day := regexp.MustCompile(`(\d) ` + month)
+	year := regexp.MustCompile(`\b` + month + ` (\d{4})\b`)
+	s = hm.ReplaceAllString(unit.ReplaceAllString(s, "$1\u00a0$2"), "$1\u00a0$2")
+	return year.ReplaceAllString(day.ReplaceAllString(s, "$1\u00a0$2"), "$1\u00a0$2")
 }
 
 // KeepUnits joins the same spaces as builder.js's keepUnits, so that the
@@ -81,6 +88,8 @@ func FuzzKeepUnitsAsBuilder(f *testing.F) {
 		"elevation 240 m, 1.5 km away, 30 s", "12 hours, 3 minutes, 5 mice, 2026 spring", "h 12", "",
 		"9 h 05 mins", "1 h 2 h 3 min", "5 ms 6 kms 7 m_ 8 m\u00e9", "9\u00a0h 05\u00a0min", "3 h 4 minutes 5 h 6",
 		"2 days 3 dayx 4 s", "1 h 05 min 55 s", " 1", "1 ",
+		"from 5 Dec 2026 to 4 Dec 2027", "21 June", "5 Mayor 2026", "Dec 20265", "xDec 2026", "12–13 February 2027",
+		"5 May 2026 2027", "1 Jun 1 Jul 2027 h", "3 Dec\u00a02026", "May 2026 5 m",
 	} {
 		f.Add(s)
 	}

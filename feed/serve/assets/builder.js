@@ -182,13 +182,15 @@ function render(res) {
   box.appendChild(table);
 }
 
-// keepUnits joins a number and its unit ("16 h", "45 min", "+1 day") and
-// the hours and minutes of one length ("9 h 05 min") with no-break spaces,
-// as the server's publish.KeepUnits does for the page /at and the index
-// page: a narrow screen breaks a line elsewhere. The JSON keeps its plain
-// spaces.
+// keepUnits joins a number and its unit ("16 h", "45 min", "+1 day"), the
+// hours and minutes of one length ("9 h 05 min") and the day, month and
+// year of a date ("2 Jul", "5 Dec 2026") with no-break spaces, as the
+// server's publish.KeepUnits does for the page /at and the index page: a
+// narrow screen breaks a line elsewhere. The JSON keeps its plain spaces.
+const month = "(January|February|March|April|May|June|July|August|September|October|November|December|Jan|Feb|Mar|Apr|Jun|Jul|Aug|Sep|Oct|Nov|Dec)\\b";
 function keepUnits(s) {
-  return s.replace(/(\d) (h|min|s|days?|k?m)\b/g, "$1\u00a0$2").replace(/(\d\u00a0h) (\d+\u00a0min)/g, "$1\u00a0$2");
+  return s.replace(/(\d) (h|min|s|days?|k?m)\b/g, "$1\u00a0$2").replace(/(\d\u00a0h) (\d+\u00a0min)/g, "$1\u00a0$2")
+    .replace(new RegExp("(\\d) " + month, "g"), "$1\u00a0$2").replace(new RegExp("\\b" + month + " (\\d{4})\\b", "g"), "$1\u00a0$2");
 }
 
 let timer = 0;

@@ -1152,3 +1152,66 @@ func TestBrowserTouchTargets(t *testing.T) {
 		}
 	}
 }
+
+// previewSpoken reads what a screen reader is told of the builder's
+// preview: the live regions around the table (an aria-live or a status or
+// alert role on it or an ancestor) and the status line's words, with the
+// number of entries the table shows.
+const previewSpoken = `(() => {
+  const live = [];
+  for (let el = document.getElementById("preview"); el; el = el.parentElement) {
+    if (el.getAttribute("aria-live") || ["status", "alert", "log"].includes(el.getAttribute("role"))) live.push(el.id || el.tagName);
+  }
+  const s = document.getElementById("preview-status");
+  return {live: live, role: s.getAttribute("role"), text: s.textContent, entries: document.querySelectorAll("#preview li").length};
+})()`
+
+// A screen reader hears one line when the builder's preview changes,
+// "Preview updated: Seven days from Sat 2026-12-05, 14 entries, times in
+// Europe/London.", from a status region (WAI-ARIA 1.2, role status), not
+// the seven days' table again after each key: the table was itself a
+// polite live region. The line follows the form: a kind more, more entries.
+func TestBrowserPreviewAnnounced(t *testing.T) {
+	ts := builderServer(t)
+	ctx := browser(t)
+	type spoken struct {
+		Live    []string
+		Role    string
+		Text    string
+		Entries int
+	}
+	read := func(wait string) spoken {
+		t.Helper()
+		if err := chromedp.Do(ctx, chromedp.Poll[chromedp.Void](wait)); err != nil {
+			t.Fatalf("waiting for %s: %v", wait, err)
+		}
+		got, err := chromedp.Run(ctx, chromedp.Evaluate[map[string]any](previewSpoken))
+		if err != nil {
+			t.Fatal(err)
+		}
+		var s spoken
+		b, _ := json.Marshal(got)
+		if err := json.Unmarshal(b, &s); err != nil {
+			t.Fatal(err)
+		}
+		return s
+	}
+	if err := chromedp.Do(ctx,
+		chromedp.EmulateViewport(412, 915),
+		chromedp.Navigate(ts.URL+"/?lat=57.05&lon=-3.65&tz=Europe/London&kinds=sunset,dark-window&start=2026-12-05"),
+	); err != nil {
+		t.Fatal(err)
+	}
+	s := read(`document.getElementById("preview-status").textContent !== ""`)
+	want := fmt.Sprintf("Preview updated: Seven days from Sat 2026-12-05, %d entries, times in Europe/London.", s.Entries)
+	if len(s.Live) != 0 || s.Role != "status" || s.Text != want || s.Entries < 14 {
+		t.Errorf("the preview is told as %+v; want no live region around the table and the status line %q", s, want)
+	}
+	if err := chromedp.Do(ctx, chromedp.Click(chromedp.ID("k-sunrise"))); err != nil {
+		t.Fatal(err)
+	}
+	s = read(`document.getElementById("preview-status").textContent !== "" && document.querySelectorAll("#preview li[data-kind=sunrise]").length > 0`)
+	if want := fmt.Sprintf("Preview updated: Seven days from Sat 2026-12-05, %d entries, times in Europe/London.", s.Entries); s.Text != want || s.Entries < 21 {
+		t.Errorf("with sunrise added, the status line says %q over %d entries; want %q", s.Text, s.Entries, want)
+	}
+}

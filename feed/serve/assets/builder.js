@@ -180,6 +180,15 @@ function render(res) {
     if (day.entries.length) td.appendChild(ul);
   }
   box.appendChild(table);
+  // A screen reader hears that the preview changed, in one line, not the
+  // whole table again after each key typed; the line is emptied first so
+  // that the same words are announced again.
+  const count = res.days.reduce((sum, day) => sum + day.entries.length, 0);
+  const status = $("preview-status");
+  status.textContent = "";
+  setTimeout(() => {
+    status.textContent = "Preview updated: " + $("days-h").textContent + ", " + count + (count === 1 ? " entry" : " entries") + ", times in " + res.zone + ".";
+  }, 100);
 }
 
 // keepUnits joins a number and its unit ("16 h", "45 min", "+1 day"), the

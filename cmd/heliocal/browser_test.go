@@ -1215,3 +1215,36 @@ func TestBrowserPreviewAnnounced(t *testing.T) {
 		t.Errorf("with sunrise added, the status line says %q over %d entries; want %q", s.Text, s.Entries, want)
 	}
 }
+
+// A phone that follows an old or mistyped link gets a page of the site at
+// its width (it was a line of plain text laid out 980 px wide, with
+// sideways scrolling), styled by the page's own sheet however deep the
+// address, in its language, titled, with a heading and a link back to the
+// main page.
+func TestBrowserNotFound(t *testing.T) {
+	ts := builderServer(t)
+	ctx := browser(t)
+	for _, w := range []int64{375, 412} {
+		for _, path := range []string{"/calendars/old-feed.ics", "/nope"} {
+			if err := chromedp.Do(ctx, chromedp.EmulateViewport(w, 800), chromedp.Navigate(ts.URL+path)); err != nil {
+				t.Fatal(err)
+			}
+			problems, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](layoutProblems))
+			if err != nil {
+				t.Fatal(err)
+			}
+			got, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](`[document.documentElement.lang, document.title, (document.querySelector("h1") || {}).textContent || "",
+  getComputedStyle(document.body).backgroundColor, (document.querySelector("main a") || {}).href || ""]`))
+			if err != nil {
+				t.Fatal(err)
+			}
+			want := []string{"en", "Not found · Sky calendars of the Fernhollow valley", "Nothing here", "rgb(246, 244, 238)", ts.URL + "/"}
+			if len(problems) > 0 || !slices.Equal(got, want) {
+				t.Errorf("%s at %d px: %s; lang, title, heading, background and link %q, want %q", path, w, strings.Join(problems, "; "), got, want)
+			}
+			if w == 375 && path == "/nope" {
+				shot(t, ctx, "notfound-375.png")
+			}
+		}
+	}
+}

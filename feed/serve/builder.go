@@ -114,6 +114,7 @@ var (
 			"urlBreaks": publish.URLBreaks,
 			"legal":     func() string { return LegalCaution },
 			"units":     publish.KeepUnits,
+			"headAt":    func(up, title string) headView { return headView{Up: up, Title: title} },
 		}).ParseFS(assetFiles, "assets/*.html"))
 	})
 	staticAssets = sync.OnceValue(loadStatic)
@@ -870,6 +871,40 @@ func (s *Server) serveTable(w http.ResponseWriter, r *http.Request) {
 		Days: days(cal, q), From: q.Start.Format(time.DateOnly), To: q.Start.AddDate(0, 0, q.Days-1).Format(time.DateOnly),
 		Builder: !s.page().NoBuilder, Another: "./?" + q.builderQuery(start), Legal: slices.ContainsFunc(q.Kinds, LegalKind)}
 	s.render(w, r, "table.html", v)
+}
+
+// headView is the data of head.html's headAt: the page's title, and Up,
+// the way from the page's folder up to the root's ("../../" for /a/b/c),
+// before the addresses of the page's own files.
+type headView struct{ Up, Title string }
+
+// notFoundView is the data of notfound.html.
+type notFoundView struct {
+	Page    PageInfo
+	Up      string // as headView's
+	Message string
+	Builder bool
+}
+
+// maxNotFoundDepth is the deepest address a browser is answered a page
+// for when nothing is there; deeper, the plain text of any other client.
+const maxNotFoundDepth = 16
+
+// notFound answers a request for nothing: a browser (one that accepts
+// HTML) with a page in the site's language and style that says so and
+// links to the main page, so that a phone shows it at its width and a
+// screen reader has its title, language and heading; any other client (a
+// calendar app, a script) with the plain text msg.
+func (s *Server) notFound(w http.ResponseWriter, r *http.Request, msg string) {
+	depth := strings.Count(r.URL.Path, "/") - 1
+	if !strings.Contains(r.Header.Get("Accept"), "text/html") || depth < 0 || depth > maxNotFoundDepth {
+		plain(w, http.StatusNotFound, msg)
+		return
+	}
+	s.renderStatus(w, r, http.StatusNotFound, "notfound.html", notFoundView{
+		Page: s.page(), Up: strings.Repeat("../", depth), Builder: !s.page().NoBuilder,
+		Message: "Nothing is published at " + quoteValue(r.URL.Path) + ". A calendar's address may have changed: the main page lists them all.",
+	})
 }
 
 // errorView is the data of error.html.

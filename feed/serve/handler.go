@@ -68,7 +68,7 @@ func (s *Server) newHandler() http.Handler {
 		h := rec.Header()
 		h["X-Content-Type-Options"] = hdrNosniff
 		if route == routeOther {
-			plain(rec, http.StatusNotFound, "not found: "+quoteValue(r.URL.Path))
+			s.notFound(rec, r, "not found: "+quoteValue(r.URL.Path))
 			return
 		}
 		if r.Method != http.MethodGet && r.Method != http.MethodHead {
@@ -195,7 +195,7 @@ func (s *Server) serveBundleFile(w http.ResponseWriter, r *http.Request, name st
 	}
 	a := snap.files[name]
 	if a == nil {
-		plain(w, http.StatusNotFound, "no such feed: "+quoteValue(name))
+		s.notFound(w, r, "no such feed: "+quoteValue(name))
 		return
 	}
 	s.serveAsset(w, r, a)

@@ -947,3 +947,46 @@ func TestRevalidatedHeldFeedNotCopied(t *testing.T) {
 		}
 	}
 }
+
+// A browser that asks for nothing (a mistyped or old address) gets a page
+// of the site, 404, with its language, title and heading, the address it
+// asked for and a link to the main page, and the page's own style found
+// relative to its address however deep it is (a proxy may serve heliocal
+// under a path); any other client, a calendar app or a script, gets the
+// one line of plain text it got before.
+func TestNotFoundPage(t *testing.T) {
+	s := builderTestServer(t)
+	h := s.Handler()
+	const browserAccept = "text/html,application/xhtml+xml,application/xml;q=0.9,*/*;q=0.8"
+	for _, tc := range []struct{ path, up string }{
+		{"/nothing-here", ""}, {"/a/b/nope", "../../"}, {"/feeds/no-such-feed.ics", "../"}, {"/gone.ics", ""},
+	} {
+		r := get(t, h, "GET", tc.path, "Accept", browserAccept)
+		page := body(t, r)
+		if r.StatusCode != 404 || r.Header.Get("Content-Type") != "text/html; charset=utf-8" || r.Header.Get("Cache-Control") != "no-store" {
+			t.Errorf("%s from a browser: %d, %q, Cache-Control %q; want 404, an HTML page, no-store", tc.path, r.StatusCode, r.Header.Get("Content-Type"), r.Header.Get("Cache-Control"))
+			continue
+		}
+		main := tc.up
+		if main == "" {
+			main = "./"
+		}
+		for _, want := range []string{`<html lang="en">`, "<title>Not found · ", "<h1>Nothing here</h1>",
+			"Nothing is published at &#34;" + tc.path + "&#34;.", `<a href="` + main + `">The main page</a>`,
+			`<link rel="stylesheet" href="` + tc.up + `assets/builder.css">`} {
+			if !strings.Contains(page, want) {
+				t.Errorf("%s from a browser: the page lacks %q", tc.path, want)
+			}
+		}
+	}
+	for _, tc := range []struct{ path, accept, want string }{
+		{"/nothing-here", "", `not found: "/nothing-here"` + "\n"},
+		{"/feeds/no-such-feed.ics", "text/calendar", `no such feed: "no-such-feed.ics"` + "\n"},
+		{"/" + strings.Repeat("a/", maxNotFoundDepth+1) + "b", browserAccept, `not found: "/` + strings.Repeat("a/", maxNotFoundDepth+1) + `b"` + "\n"},
+	} {
+		r := get(t, h, "GET", tc.path, "Accept", tc.accept)
+		if got := body(t, r); r.StatusCode != 404 || r.Header.Get("Content-Type") != "text/plain; charset=utf-8" || got != tc.want {
+			t.Errorf("%s, Accept %q: %d, %q, %q; want 404 and the plain %q", tc.path, tc.accept, r.StatusCode, r.Header.Get("Content-Type"), got, tc.want)
+		}
+	}
+}

@@ -1248,3 +1248,29 @@ func TestBrowserNotFound(t *testing.T) {
 		}
 	}
 }
+
+// With JavaScript off the builder cannot preview or link, and says so at
+// its top, pointing to the published calendars, which need none; it said
+// "Enter a latitude and longitude … to see seven days of events", which
+// never came. With JavaScript on, the note is not shown.
+func TestBrowserBuilderWithoutScript(t *testing.T) {
+	ts := builderServer(t)
+	ctx := browser(t)
+	const note = `[...document.querySelectorAll("section[aria-labelledby=make-h] .message")].filter(p => p.getClientRects().length).map(p => p.textContent)`
+	if err := chromedp.Do(ctx, chromedp.EmulateViewport(375, 740), chromedp.Navigate(ts.URL+"/")); err != nil {
+		t.Fatal(err)
+	}
+	if shown, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](note)); err != nil || len(shown) != 0 {
+		t.Errorf("with JavaScript on, the builder shows %q (%v), want no note", shown, err)
+	}
+	if _, err := chromedp.Call(ctx, emulation.SetScriptExecutionDisabled, emulation.SetScriptExecutionDisabledParams{Value: true}); err != nil {
+		t.Fatal(err)
+	}
+	if err := chromedp.Do(ctx, chromedp.Navigate(ts.URL+"/")); err != nil {
+		t.Fatal(err)
+	}
+	want := "This builder needs JavaScript, which is off in this browser: it shows no preview and no subscribe links without it. The published calendars below work without it."
+	if shown, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](note)); err != nil || len(shown) != 1 || shown[0] != want {
+		t.Errorf("with JavaScript off, the builder shows %q (%v), want %q", shown, err, want)
+	}
+}

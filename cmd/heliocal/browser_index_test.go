@@ -336,3 +336,45 @@ func TestBrowserPublishedIndexPhoneChart(t *testing.T) {
 		}
 	}
 }
+
+// monthGaps reads, per chart shown, the smallest room in CSS pixels between
+// two month labels side by side, and the pair.
+const monthGaps = `[...document.querySelectorAll("figure")].map(f => {
+  const svg = [...f.querySelectorAll(":scope > svg")].find(s => getComputedStyle(s).display !== "none");
+  const shown = [...svg.querySelectorAll("text.mo")].filter(t => getComputedStyle(t).display !== "none").map(t => ({s: t.textContent, r: t.getBoundingClientRect()}));
+  let min = {gap: Infinity, pair: ""};
+  for (let i = 1; i < shown.length; i++) {
+    const gap = shown[i].r.left - shown[i - 1].r.right;
+    if (gap < min.gap) min = {gap: gap, pair: shown[i - 1].s + " " + shown[i].s};
+  }
+  return min;
+})`
+
+// On a phone the month labels of a year chart stand apart: each is centred
+// on its month's days, at least 1.5 px from the next. Begun 3 units after
+// their month's first day, "May" and "Jun" touched (0 px apart at 375 px,
+// overlapping by 0.1 px at 412 px) and read as one word.
+func TestBrowserPhoneChartMonthsApart(t *testing.T) {
+	ctx := browser(t)
+	page := publishChartSites(t)
+	if err := chromedp.Do(ctx, chromedp.Navigate(page)); err != nil {
+		t.Fatal(err)
+	}
+	for _, w := range []int64{412, 390, 375, 320} {
+		if err := chromedp.Do(ctx, chromedp.EmulateViewport(w, 900)); err != nil {
+			t.Fatal(err)
+		}
+		gaps, err := chromedp.Run(ctx, chromedp.Evaluate[[]struct {
+			Gap  float64
+			Pair string
+		}](monthGaps))
+		if err != nil {
+			t.Fatal(err)
+		}
+		for i, g := range gaps {
+			if g.Gap < 1.5 {
+				t.Errorf("%d px, chart %d: the month labels %q are %.1f px apart, want 1.5 px at least", w, i+1, g.Pair, g.Gap)
+			}
+		}
+	}
+}

@@ -563,6 +563,17 @@ func (g geometry) monthTicks(ms []tickView, n int) []tickView {
 	for k, tv := range ms {
 		x := g.Left + float64(tv.day)*step
 		tv.X, tv.TX, tv.TY = num(x), num(x+3), num(g.bottom()+14)
+		if g.Phone {
+			// centred on its month's days, not begun 3 units after
+			// its first: "May" (wide) and "Jun" (narrow) touched
+			// there, read as one word, each month's column as wide
+			// as its label at 12 px
+			next := n
+			if k+1 < len(ms) {
+				next = ms[k+1].day
+			}
+			tv.TX = num(x + float64(next-tv.day)*step/2)
+		}
 		ticks[k] = tv
 	}
 	return ticks

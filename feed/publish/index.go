@@ -351,7 +351,7 @@ Machine-readable list: <a href="feeds.json">feeds.json</a>.{{with .NoCharts}} {{
 {{end}}{{end}}{{with .Dark}}<path class="dark" stroke="url(#{{$id}}-hatch)" stroke-width="{{$step}}" d="{{.}}"><title>dark windows</title></path>
 {{end}}{{with .Lamps}}<path class="lamp" stroke-width="{{$step}}" d="{{.}}"><title>lamp periods</title></path>
 {{end}}{{range .Hours}}<line class="grid" x1="{{$d.Left}}" x2="{{$d.Right}}" y1="{{.Y}}" y2="{{.Y}}"/><text class="yl" x="{{.TX}}" y="{{.TY}}">{{.Label}}{{if not $d.Phone}}<tspan class="mm">:00</tspan>{{end}}</text>
-{{end}}{{range .Months}}<line class="tick" x1="{{.X}}" x2="{{.X}}" y1="{{$d.Bottom}}" y2="{{$d.TickEnd}}"/>{{if .Label}}<text class="mo{{if .Short}} short{{end}}{{if .Alt}} alt{{end}}" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>{{end}}
+{{end}}{{range .Months}}<line class="tick" x1="{{.X}}" x2="{{.X}}" y1="{{$d.Bottom}}" y2="{{$d.TickEnd}}"/>{{if .Label}}<text class="mo{{if .Short}} short{{end}}{{if .Alt}} alt{{end}}" x="{{.TX}}" y="{{.TY}}"{{if $d.Phone}} text-anchor="middle"{{end}}>{{.Label}}</text>{{end}}
 {{end}}{{with .Rise}}<path class="rise" d="{{.}}"><title>sunrise</title></path>
 {{end}}{{with .Set}}<path class="set" d="{{.}}"><title>sunset</title></path>
 {{end}}{{range .Thresholds}}<line class="thr" x1="{{.X}}" x2="{{.X}}" y1="{{$d.Top}}" y2="{{$d.Bottom}}"><title>{{.Text}}</title></line>{{if not $d.Phone}}<text class="tl" x="{{.TX}}" y="{{.TY}}">{{.Label}}</text>{{end}}

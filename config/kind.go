@@ -294,10 +294,16 @@ func ParseKind(s string) (Kind, error) {
 // nearKind returns the written kind that text (lower case, trimmed), an
 // unknown kind, most likely means: the name among names nearest to its base
 // name, with text's parameter or, when it has none, the kind's example
-// ("photoperod:12h": "photoperiod:12h", "photoperod": "photoperiod:12h30m");
-// "" when no name is near.
+// ("photoperod:12h": "photoperiod:12h", "photoperod": "photoperiod:12h30m"),
+// or the kind whose colon is missing, with its parameter ("lighting 14h":
+// "lighting:14h"); "" when no name is near.
 func nearKind(text string, names []string) string {
 	base, param, hasParam := strings.Cut(text, ":")
+	if !hasParam {
+		if near := kindWithParam(text, names); near != "" {
+			return near
+		}
+	}
 	param = strings.TrimSpace(param)
 	near := closest(strings.TrimSpace(base), names)
 	if near == "" || kindIndex[near].flags&flagParam == 0 {
@@ -307,6 +313,45 @@ func nearKind(text string, names []string) string {
 		return near + ":" + param
 	}
 	return exampleFor(near)
+}
+
+// kindWithParam is the written kind that text (lower case, trimmed) means
+// when it is a kind with a parameter whose colon is missing: the name, or a
+// misspelt one, run into its parameter or parted from it by a space, "=",
+// "-" or "_" ("lighting 14h", "lighting14h", "photoperiod=12h",
+// "sun-altitude -3", "sun-band 2..12"). It is the name among names, a colon
+// and the parameter as written, when that parses; "" otherwise, so that a
+// misspelt kind never gets another kind's example parameter in place of
+// its own.
+func kindWithParam(text string, names []string) string {
+	try := func(name, rest string) string {
+		if d, ok := kindIndex[name]; !ok || d.flags&flagParam == 0 {
+			return ""
+		}
+		rest = strings.TrimLeft(rest, " \t=_")
+		for _, p := range []string{rest, strings.TrimPrefix(rest, "-")} {
+			if p == "" {
+				continue
+			}
+			if _, err := ParseKind(name + ":" + p); err == nil {
+				return name + ":" + p
+			}
+		}
+		return ""
+	}
+	for _, name := range names {
+		if rest, ok := strings.CutPrefix(text, name); ok {
+			if near := try(name, rest); near != "" {
+				return near
+			}
+		}
+	}
+	if i := strings.IndexAny(text, " \t="); i > 0 { // "lightning 14h"
+		if near := closest(text[:i], names); near != "" {
+			return try(near, text[i:])
+		}
+	}
+	return ""
 }
 
 func exampleFor(name string) string {

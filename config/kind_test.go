@@ -90,6 +90,18 @@ func TestParseKindErrors(t *testing.T) {
 		{"photoperoid:12h", "unknown kind", `did you mean "photoperiod:12h"?`},
 		{"sunaltitude", "unknown kind", `did you mean "sun-altitude:-3.5"?`},
 		{"tea-time", "unknown kind", "known kinds: sunrise, sunset"},
+		// a parameter without its colon: the kind with that parameter, not
+		// the kind's example ("lighting:16h" for "lighting 14h")
+		{"lighting 14h", "unknown kind", `did you mean "lighting:14h"?`},
+		{"lighting14h", "unknown kind", `did you mean "lighting:14h"?`},
+		{"lighting-14h", "unknown kind", `did you mean "lighting:14h"?`},
+		{"lightning 14h", "unknown kind", `did you mean "lighting:14h"?`},
+		{"photoperiod 14h30m", "unknown kind", `did you mean "photoperiod:14h30m"?`},
+		{"photoperiod=12h", "unknown kind", `did you mean "photoperiod:12h"?`},
+		{"sun-altitude -3", "unknown kind", `did you mean "sun-altitude:-3"?`},
+		{"sun-altitude-3", "unknown kind", `did you mean "sun-altitude:-3"?`},
+		{"sun-altitude=10", "unknown kind", `did you mean "sun-altitude:10"?`},
+		{"sun-band 2..12", "unknown kind", `did you mean "sun-band:2..12"?`},
 		// several kinds in one text: each to write as its own entry
 		{"sunrise, sunset", "2 kinds in one entry", `write each as an entry of its own: "sunrise", "sunset"`},
 		{"Sunrise sunset civil-dusk", "3 kinds in one entry", `write each as an entry of its own: "sunrise", "sunset", "civil-dusk"`},

@@ -340,6 +340,9 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-plan-start-number-for.yaml", "feeds[0].plans[0].start", "2000", "must be text, not a number", `write it "20:00"`, 0},
 		{"bad-earliest-on.yaml", "feeds[0].kinds[0].earliest_on", "5am", "not a clock time", `the clock has 24 hours: write it "05:00"`, 0},
 		{"lamps-wrong-kind.yaml", "feeds[0].kinds[0].lamps", "evening", "applies only to lighting", "", 0},
+		// on a photoperiod kind, the lighting kind of its day length, not another's
+		{"lamps-photoperiod.yaml", "feeds[0].kinds[0].lamps", "morning", "applies only to lighting", `remove it, or use kind: "lighting:14h"`, 2},
+		{"lamps-photoperiod.yaml", "feeds[0].kinds[0].earliest_on", "05:00", "applies only to lighting", `remove it, or use kind: "lighting:14h"`, 2},
 		{"bad-lighting.yaml", "feeds[0].kinds[0]", "lighting:26h", "shorter than 24h", "lighting:12h", 0},
 		// a kind's parameter written as a key beside it: the kind to write,
 		// in the file's format, not the list of the entry's keys

@@ -949,9 +949,13 @@ func (ks *KindSpec) validateOptions(ps *problems, p string) {
 	}
 	checkFilter(ps, p, ks.Weekdays, ks.Months, ks.Dates)
 	lighting := ks.Kind.Name == KindLighting
+	instead := "lighting:16h" // for photoperiod:14h, lighting:14h: the same day length
+	if ks.Kind.Name == KindPhotoperiod {
+		instead = Kind{Name: KindLighting, DayLength: ks.Kind.DayLength}.String()
+	}
 	onlyLighting := func(key, v string) bool {
 		if v != "" && !lighting {
-			ps.add(p+"."+key, v, "applies only to lighting", `remove it, or use kind: "lighting:16h"`)
+			ps.add(p+"."+key, v, "applies only to lighting", fmt.Sprintf("remove it, or use kind: %q", instead))
 			return false
 		}
 		return v != ""

@@ -117,18 +117,29 @@ func loadZoneMap() (*zonePolygons, error) {
 	return newZonePolygons(names, shapes), nil
 }
 
+// ZoneHintAt is ZoneHint for a zone name given with a place's coordinates
+// (--tz beside --lat and --lon, an ad-hoc feed's tz beside lat and lon), as
+// a site's timezone is told: the zone in force at lat, lon when name is a UTC
+// offset ("+12:45" at the Chatham Islands: "Pacific/Chatham") or names no
+// zone near it. key is how the zone is given ("--tz", "tz"), for "leave it
+// out".
+func ZoneHintAt(name string, lat, lon float64, key string) string {
+	return zoneHintAt(name, ZoneHint(name), lat, lon, "place", key)
+}
+
 // zoneHintAt is the hint of name, a zone the tz database does not know
-// (hint is ZoneHint's), at a site at lat, lon: the zone in force there when
-// the name's spelling names no zone near it ("Europe/Geneva", Geneva being
-// on Europe/Zurich's time, is not "Europe/Kiev"), or is a UTC offset; a
+// (hint is ZoneHint's), at a site (what: "site", or "place") at lat, lon,
+// whose zone is given by key: the zone in force there when the name's
+// spelling names no zone near it ("Europe/Geneva", Geneva being on
+// Europe/Zurich's time, is not "Europe/Kiev"), or is a UTC offset; a
 // misspelling of a few letters keeps its suggestion, with the zone at the
 // site beside it when that is another. hint when no zone is found there.
-func zoneHintAt(name, hint string, lat, lon float64) string {
+func zoneHintAt(name, hint string, lat, lon float64, what, key string) string {
 	z, err := ZoneAt(lat, lon)
 	if err != nil || hint == didYouMean(z) {
 		return hint
 	}
-	here := fmt.Sprintf("the zone at the site's latitude and longitude is %q", z)
+	here := fmt.Sprintf("the zone at the %s's latitude and longitude is %q", what, z)
 	near, misspelt := strings.CutPrefix(hint, "did you mean ")
 	switch {
 	case offsetHint(strings.TrimSpace(name)) != "":
@@ -136,7 +147,7 @@ func zoneHintAt(name, hint string, lat, lon float64) string {
 	case misspelt && distance(strings.ToLower(strings.ReplaceAll(strings.TrimSpace(name), " ", "_")), strings.ToLower(strings.Trim(near, `"?`))) <= 2:
 		return hint + " " + here // Europe/Viena at a site in Bratislava
 	case misspelt || hint == ZoneHint(""):
-		return here + "; or leave timezone out, and it is taken from them"
+		return here + "; or leave " + key + " out, and it is taken from them"
 	}
 	return hint // typographic quotes: the name is right
 }

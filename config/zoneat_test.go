@@ -298,3 +298,22 @@ func TestUnknownZoneAtSite(t *testing.T) {
 		}
 	}
 }
+
+// A zone name given with a place's coordinates (--tz beside --lat and --lon,
+// an ad-hoc feed's tz) is told the zone in force there as a site's is, in
+// the words of a place and its own key: the Chatham Islands keep
+// Pacific/Chatham, UTC+12:45 in winter and +13:45 in summer (the tz
+// database's zone1970.tab: NZ, -4357-17633, "Chatham Islands").
+func TestZoneHintAtPlace(t *testing.T) {
+	const here = `the zone at the place's latitude and longitude is "Pacific/Chatham"`
+	for name, want := range map[string]string{
+		"+12:45":         "a UTC offset is not a time zone: " + here + ", which follows its clock changes",
+		"UTC+13:45":      "a UTC offset is not a time zone: " + here + ", which follows its clock changes",
+		"Chatam":         here + "; or leave --tz out, and it is taken from them",
+		"Pacific/Chatam": `did you mean "Pacific/Chatham"?`,
+	} {
+		if got := ZoneHintAt(name, -43.95, -176.56, "--tz"); got != want {
+			t.Errorf("%s: %s\nwant %s", name, got, want)
+		}
+	}
+}

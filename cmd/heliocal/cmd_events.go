@@ -204,6 +204,9 @@ func eventsPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 		}
 		s.TimeZone, s.ZoneInferred = z, true
 	} else if err := s.TimeZone.UnmarshalText([]byte(o.tz)); err != nil {
+		if ze, ok := err.(*config.ZoneError); ok { // the zone at the place, as a site's is told
+			ze.Hint = config.ZoneHintAt(o.tz, o.lat, o.lon, "--tz")
+		}
 		return nil, badInput("--tz: %w", err)
 	}
 	s.Name = feed.CoordsName(o.lat, o.lon)

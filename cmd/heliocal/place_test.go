@@ -27,6 +27,22 @@ func TestEventsCoordinatesRequired(t *testing.T) {
 	}
 }
 
+// A --tz the tz database does not know, beside --lat and --lon, is told the
+// zone in force at the place, as a site's timezone is: "+12:45" at the
+// Chatham Islands is Pacific/Chatham (the tz database's zone1970.tab: NZ,
+// -4357-17633), which keeps summer time too.
+func TestEventsUnknownZoneNamesZoneAtPlace(t *testing.T) {
+	for tz, want := range map[string]string{
+		"+12:45": `--tz: unknown time zone "+12:45" (a UTC offset is not a time zone: the zone at the place's latitude and longitude is "Pacific/Chatham", which follows its clock changes)`,
+		"Chatam": `--tz: unknown time zone "Chatam" (the zone at the place's latitude and longitude is "Pacific/Chatham"; or leave --tz out, and it is taken from them)`,
+	} {
+		code, out, errOut := runCLI(t, "events", "--lat", "-43.95", "--lon", "-176.56", "--tz", tz, "--kinds", "sunrise")
+		if code != exitInput || !strings.Contains(errOut, want) || out != "" {
+			t.Errorf("--tz %s: exit %d, stderr %q, stdout %q; want exit 2 with %q", tz, code, errOut, out, want)
+		}
+	}
+}
+
 // --elev, --horizon, --pressure and --temperature describe a place given by
 // --lat and --lon; beside --site or --feed, whose site has its own in the
 // configuration, each is refused naming the flag and its value, not ignored.

@@ -88,6 +88,10 @@ type AdhocQuery struct {
 	// included: horizon=0 is a level horizon, without the dip of the
 	// elevation (config.Site.HorizonSet).
 	HorizonSet bool
+
+	// placed is true once Latitude and Longitude are read: an unknown tz
+	// is then told the zone in force there.
+	placed bool
 }
 
 // String returns the canonical query string, the cache key.
@@ -266,6 +270,7 @@ func (q *AdhocQuery) parsePlace(get getter) error {
 	if q.Longitude == -180 {
 		q.Longitude = 180 // the same meridian, one spelling
 	}
+	q.placed = true
 	return q.parseElevation(get)
 }
 
@@ -307,8 +312,13 @@ func (q *AdhocQuery) parseZone(get getter, lim *adhocLimits) error {
 				return &QueryError{Param: ParamZone, Value: tz, Msg: fmt.Sprintf("unknown time zone (a \"+\" in a link is read as a space: for %s write tz=%s)", plus, zoneInLink.Replace(plus))}
 			}
 		}
-		// the configuration's suggestion: the nearest known name
-		return &QueryError{Param: ParamZone, Value: tz, Msg: "unknown time zone (" + config.ZoneHint(tz) + ")"}
+		// the configuration's suggestion: the nearest known name, or the
+		// zone at the coordinates, as a site's timezone is told
+		hint := config.ZoneHint(tz)
+		if q.placed {
+			hint = config.ZoneHintAt(tz, q.Latitude, q.Longitude, ParamZone)
+		}
+		return &QueryError{Param: ParamZone, Value: tz, Msg: "unknown time zone (" + hint + ")"}
 	}
 	return nil
 }

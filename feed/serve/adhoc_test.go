@@ -92,9 +92,11 @@ func TestAdhocBadParameters(t *testing.T) {
 		{"lat=47&lon=13&tz=europe/vienna&kinds=sunrise", "tz", `did you mean "Europe/Vienna"?`},
 		{"lat=-33.45&lon=-70.66&tz=America/Santiag&kinds=sunrise", "tz", `did you mean "America/Santiago"?`},
 		{"lat=47&lon=13&tz=", "tz", `""`},
-		// an empty name and one nothing resembles get the same two examples
-		{"lat=47&lon=13&tz=", "tz", `use an IANA name such as "Europe/Vienna" or "America/New_York"`},
-		{"lat=47&lon=13&tz=Local&kinds=sunrise", "tz", `use an IANA name such as "Europe/Vienna" or "America/New_York"`},
+		// an empty name and one nothing resembles get the zone in force at
+		// the coordinates, as a site's timezone does (47° N, 13° E is in
+		// Austria: Europe/Vienna in the tz database's zone1970.tab)
+		{"lat=47&lon=13&tz=", "tz", `the zone at the place's latitude and longitude is "Europe/Vienna"; or leave tz out, and it is taken from them`},
+		{"lat=47&lon=13&tz=Local&kinds=sunrise", "tz", `the zone at the place's latitude and longitude is "Europe/Vienna"; or leave tz out`},
 		{"lat=47&lon=13&tz=UTC", "kinds", ""},
 		{"lat=47&lon=13&tz=UTC&kinds=", "kinds", `""`},
 		{"lat=47&lon=13&tz=UTC&kinds=sunrise,,sunset", "kinds", `"sunrise,,sunset"`},

@@ -608,3 +608,16 @@ func TestLinksEscapeZone(t *testing.T) {
 		t.Errorf("linkPlace %q differs from place %q by more than the zone's +", got, q.place())
 	}
 }
+
+// A UTC offset given as tz is told the zone in force at the query's
+// coordinates, as a site's timezone is in the configuration: "+12:45" at
+// the Chatham Islands is Pacific/Chatham (the tz database's zone1970.tab:
+// NZ, -4357-17633), which also keeps summer time (+13:45).
+func TestAdhocOffsetZoneNamesZoneAtPlace(t *testing.T) {
+	s := builderTestServer(t)
+	r := get(t, s.Handler(), "GET", "/at.ics?lat=-43.95&lon=-176.56&kinds=sunrise&tz=%2B12:45")
+	want := `parameter tz="+12:45": unknown time zone (a UTC offset is not a time zone: the zone at the place's latitude and longitude is "Pacific/Chatham", which follows its clock changes)`
+	if m := body(t, r); r.StatusCode != 400 || !strings.Contains(m, want) {
+		t.Errorf("tz=+12:45: %d %q, want 400 saying %q", r.StatusCode, m, want)
+	}
+}

@@ -61,16 +61,20 @@ func (s *Server) builderFill(raw, today string) (builderFill, []kindGroup) {
 	}
 	r.lim.defaultDays = previewDays
 	f, q := &r.f, &r.q
+	var lat, lon bool // read: an unknown tz is told the zone there
 	r.read(ParamLatitude, func(get getter) error {
 		v, err := parseCoord(get, ParamLatitude, 90, config.LatitudeText)
 		f.Lat = strconv.FormatFloat(v, 'f', -1, 64)
+		q.Latitude, lat = v, err == nil
 		return err
 	})
 	r.read(ParamLongitude, func(get getter) error {
 		v, err := parseCoord(get, ParamLongitude, 180, config.LongitudeText)
 		f.Lon = strconv.FormatFloat(v, 'f', -1, 64)
+		q.Longitude, lon = v, err == nil
 		return err
 	})
+	q.placed = lat && lon
 	r.read(ParamElevation, func(get getter) error {
 		err := q.parseElevation(get)
 		f.Elev = strconv.FormatFloat(q.Elevation, 'f', -1, 64)

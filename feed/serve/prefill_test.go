@@ -234,3 +234,20 @@ func FuzzBuilderFill(f *testing.F) {
 		}
 	})
 }
+
+// A link's UTC offset as tz is told the zone in force at the link's
+// coordinates, as /at.ics tells it: "+12:45" at the Chatham Islands is
+// Pacific/Chatham (the tz database's zone1970.tab: NZ, -4357-17633). A link
+// whose coordinates are left out as well gets the spelling's hint alone,
+// never the zone at 0°, 0°.
+func TestBuilderFillOffsetZoneNamesZoneAtPlace(t *testing.T) {
+	h := builderTestServer(t).Handler()
+	for link, want := range map[string]string{
+		"/?lat=-43.95&lon=-176.56&tz=%2B12:45": `parameter tz="+12:45": unknown time zone (a UTC offset is not a time zone: the zone at the place's latitude and longitude is "Pacific/Chatham", which follows its clock changes)`,
+		"/?lat=north&lon=-176.56&tz=%2B12:45":  `parameter tz="+12:45": unknown time zone (a UTC offset is not a time zone: write the place's zone, such as "Europe/Paris", which follows its clock changes)`,
+	} {
+		if notes := fillNotes(body(t, get(t, h, "GET", link))); !slices.Contains(notes, want) {
+			t.Errorf("%s: notes %q, want %q", link, notes, want)
+		}
+	}
+}

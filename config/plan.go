@@ -667,6 +667,9 @@ func parseTimeSpec(t string, suggest bool) (TimeSpec, *RuleError) {
 	if t[0] >= '0' && t[0] <= '9' {
 		c, err := ParseClock(t)
 		if err != nil {
+			if near := offsetInWords(t); suggest && near != "" { // "30m before sunrise"
+				return TimeSpec{}, &RuleError{Msg: "malformed offset", Hint: didYouMean(near)}
+			}
 			return TimeSpec{}, &RuleError{Msg: "not a clock time", Hint: clockDigitsHint(t, `write HH:MM (00:00..23:59), e.g. "20:00"`)}
 		}
 		return TimeSpec{IsClock: true, Clock: c}, nil
@@ -770,6 +773,36 @@ func nearTimeSpec(t, name string) string {
 	}
 	return ""
 }
+
+// offsetInWords returns the plan time that t (lower case, trimmed) means
+// when it says its offset in words before the event: "30m before sunrise"
+// is "sunrise-30m", "1 hour after sunset" "sunset+1h"; "" when t is no such
+// thing or the event is no plan time.
+func offsetInWords(t string) string {
+	m := offsetWords().FindStringSubmatch(t)
+	if m == nil {
+		return ""
+	}
+	d := strings.Join(strings.Fields(m[1]), "")
+	if w := wordDuration().FindStringSubmatch(d); w != nil {
+		d = w[1] + strings.ToLower(w[2][:1])
+	}
+	if !isBareDuration(d) {
+		return ""
+	}
+	sign := map[string]string{"before": "-", "after": "+"}[m[2]]
+	near := strings.Join(strings.Fields(m[3]), "") + sign + d
+	if _, err := parseTimeSpec(near, false); err != nil {
+		return ""
+	}
+	return near
+}
+
+// offsetWords is a length, "before" or "after", and an event: "30m before
+// sunrise", "1 hour after sunset".
+var offsetWords = sync.OnceValue(func() *regexp.Regexp {
+	return regexp.MustCompile(`^([0-9][0-9a-z. ]*?)\s*\b(before|after)\s+(\S.*)$`)
+})
 
 // hasKindPrefix reports whether name begins with a kind followed by "+" or
 // "-".

@@ -244,9 +244,15 @@ func TestPlanDidYouMean(t *testing.T) {
 		{"civl-dusk-15m", `did you mean "civil-dusk-15m"?`},
 		{"sunrse", `did you mean "sunrise"?`},
 		{"Sunset + 30m", `did you mean "sunset+30m"?`},
+		// the offset in words before the event: the plan time it means
+		{"30m before sunrise", `did you mean "sunrise-30m"?`},
+		{"30 min before sunrise", `did you mean "sunrise-30m"?`},
+		{"1 hour after sunset", `did you mean "sunset+1h"?`},
+		{"1h 30m before civil-dusk", `did you mean "civil-dusk-1h30m"?`},
 		// golden-hour is near but no plan time; a unit missing is no misspelling
 		{"golden-houre", timeSpecHint},
 		{"astronomical-dusk-15", timeSpecHint},
+		{"30m before golden-hour", `write HH:MM (00:00..23:59), e.g. "20:00"`}, // no instant: no guess
 	} {
 		_, err := ParseTimeSpec(tc.in)
 		var re *RuleError

@@ -248,9 +248,29 @@ func ParseDateRule(s string) (DateRule, error) {
 		} else if near := nearRule(f); near != "" {
 			err.Hint = didYouMean(near)
 		}
+		if err.Msg == "unknown kind" && !nearKindRule(err.Hint) {
+			// "weekly", "saturdays": a word near no kind is no misspelt
+			// event but a rule written otherwise
+			err.Msg = "not a date rule"
+		}
 		return DateRule{}, err
 	}
 	return r, nil
+}
+
+// nearKindRule reports whether hint, a date rule's, suggests an event kind
+// ("did you mean "full-moon"?"), which makes the rule a misspelt kind.
+func nearKindRule(hint string) bool {
+	near, ok := strings.CutPrefix(hint, "did you mean ")
+	if !ok {
+		return false
+	}
+	near, err := strconv.Unquote(strings.TrimSuffix(near, "?"))
+	if err != nil {
+		return false
+	}
+	_, kerr := ParseKind(near)
+	return kerr == nil
 }
 
 // everyWords are the words for "every" before a day in German, French,

@@ -174,6 +174,23 @@ func TestDateRuleDayOfYear(t *testing.T) {
 	}
 }
 
+// A one-word date rule near no event kind is told it is no date rule, not
+// an unknown kind: "saturdays" means "every saturday", and "weekly" names
+// no day. A misspelt kind ("fullmoon") stays an unknown kind.
+func TestDateRuleWordNearNoKind(t *testing.T) {
+	for rule, want := range map[string][2]string{
+		"saturdays": {"not a date rule", `did you mean "every saturday"?`},
+		"weekly":    {"not a date rule", dateRuleHint},
+		"fullmoon":  {"unknown kind", `did you mean "full-moon"?`},
+	} {
+		_, err := ParseDateRule(rule)
+		var re *RuleError
+		if !errors.As(err, &re) || re.Msg != want[0] || re.Hint != want[1] {
+			t.Errorf("%s: %v, want %s (%s)", rule, err, want[0], want[1])
+		}
+	}
+}
+
 // An unknown kind that is the whole date rule is not named twice:
 // `date: fullmoon: unknown kind (did you mean "full-moon"?)`.
 func TestDateRuleUnknownKindOnce(t *testing.T) {

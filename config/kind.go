@@ -182,6 +182,51 @@ func (e *KindError) Error() string {
 	return s
 }
 
+// kindWords are the kinds meant by a word that names none: a family of
+// kinds by the name of what they bound ("civil-twilight": its dawn and its
+// dusk) or a kind by its everyday name ("noon", "summary"). The keys are
+// written in lower case with hyphens between words.
+var kindWords = map[string][]string{
+	"twilight":              {"civil-dawn", "civil-dusk"},
+	"civil-twilight":        {"civil-dawn", "civil-dusk"},
+	"nautical-twilight":     {"nautical-dawn", "nautical-dusk"},
+	"astronomical-twilight": {"astronomical-dawn", "astronomical-dusk"},
+	"dawn":                  {"civil-dawn", "nautical-dawn", "astronomical-dawn"},
+	"dusk":                  {"civil-dusk", "nautical-dusk", "astronomical-dusk"},
+	"first-light":           {"civil-dawn"},
+	"last-light":            {"civil-dusk"},
+	"noon":                  {"solar-noon"},
+	"midday":                {"solar-noon"},
+	"summary":               {"daily-summary"},
+	"daylight":              {"daily-summary"},
+	"day-length":            {"daily-summary"},
+	"daylength":             {"daily-summary"},
+	"sunrise-sunset":        {"sunrise", "sunset"},
+	"eclipse":               {"solar-eclipse", "lunar-eclipse"},
+	"eclipses":              {"solar-eclipse", "lunar-eclipse"},
+	"equinox":               {"march-equinox", "september-equinox"},
+	"equinoxes":             {"march-equinox", "september-equinox"},
+	"solstice":              {"june-solstice", "december-solstice"},
+	"solstices":             {"june-solstice", "december-solstice"},
+	"phases":                {"moon-phases"},
+	"dark-sky":              {"dark-window"},
+	"darkness":              {"dark-window"},
+}
+
+// kindWordHint is the hint naming the kinds a word means: the one it likely
+// means (`did you mean "solar-noon"?`), or the family's (`its kinds are
+// "civil-dawn" and "civil-dusk"`).
+func kindWordHint(kinds []string) string {
+	if len(kinds) == 1 {
+		return didYouMean(kinds[0])
+	}
+	q := make([]string, len(kinds))
+	for i, k := range kinds {
+		q[i] = strconv.Quote(k)
+	}
+	return fmt.Sprintf("its kinds are %s and %s", strings.Join(q[:len(q)-1], ", "), q[len(q)-1])
+}
+
 // severalKinds is each kind of text, several kinds written as one
 // ("sunrise, sunset", "sunrise sunset"), in quotes; nil when text is not
 // two kinds or more.
@@ -216,6 +261,8 @@ func ParseKind(s string) (Kind, error) {
 			msg = "is empty: name a kind"
 		} else if kinds := severalKinds(text); kinds != nil {
 			msg, hint = fmt.Sprintf("%d kinds in one entry", len(kinds)), "write each as an entry of its own: "+strings.Join(kinds, ", ")
+		} else if kinds := kindWords[strings.NewReplacer(" ", "-", "_", "-").Replace(text)]; kinds != nil {
+			hint = kindWordHint(kinds)
 		} else if near := nearKind(text, KindNames); near != "" {
 			hint = didYouMean(near)
 		}

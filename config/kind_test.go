@@ -90,6 +90,12 @@ func TestParseKindErrors(t *testing.T) {
 		{"photoperoid:12h", "unknown kind", `did you mean "photoperiod:12h"?`},
 		{"sunaltitude", "unknown kind", `did you mean "sun-altitude:-3.5"?`},
 		{"tea-time", "unknown kind", "known kinds: sunrise, sunset"},
+		// a word that names no kind: the family's kinds, or the kind meant
+		{"civil-twilight", "unknown kind", `its kinds are "civil-dawn" and "civil-dusk"`},
+		{"Civil twilight", "unknown kind", `its kinds are "civil-dawn" and "civil-dusk"`},
+		{"dusk", "unknown kind", `its kinds are "civil-dusk", "nautical-dusk" and "astronomical-dusk"`},
+		{"noon", "unknown kind", `did you mean "solar-noon"?`},
+		{"summary", "unknown kind", `did you mean "daily-summary"?`},
 		// a parameter without its colon: the kind with that parameter, not
 		// the kind's example ("lighting:16h" for "lighting 14h")
 		{"lighting 14h", "unknown kind", `did you mean "lighting:14h"?`},
@@ -255,6 +261,20 @@ func TestDayLengthWrittenOtherwise(t *testing.T) {
 		var ke *KindError
 		if !errors.As(err, &ke) || ke.Msg != "malformed day length" || ke.Hint != hint {
 			t.Errorf("%q: %v, want malformed day length (%s)", in, err, hint)
+		}
+	}
+}
+
+// Every word of kindWords names no kind, and every kind it points to is one.
+func TestKindWordsAreKinds(t *testing.T) {
+	for word, kinds := range kindWords {
+		if _, err := ParseKind(word); err == nil {
+			t.Errorf("%q is a kind itself", word)
+		}
+		for _, k := range kinds {
+			if _, err := ParseKind(k); err != nil {
+				t.Errorf("%q: %q is no kind: %v", word, k, err)
+			}
 		}
 	}
 }

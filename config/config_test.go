@@ -197,6 +197,7 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-latitude-quoted.yaml", "sites[0].latitude", `"95"`, "must be a number, not text", "without quotes", 0},
 		{"bad-latitude-text.yaml", "sites[0].latitude", `"abc"`, "must be a number", "", 0},
 		{"bad-longitude.yaml", "sites[0].longitude", "-181.5", "must be within -180..180", "east positive", 0},
+		{"bad-longitude-east.yaml", "sites[0].longitude", "183.44", "must be within -180..180", "write -176.56 (176.56°W) for 183.44° counted east", 0},
 		{"bad-elevation.yaml", "sites[0].elevation", "12000", "must be within -500..9000 metres", "not feet: write 3658 for 12000 ft", 0}, // 12000 × 0.3048 m = 3657.6 m (the international foot, 0.3048 m exactly: NIST SP 811, appendix B)
 		{"bad-horizon.yaml", "sites[0].horizon", "60", "must be within -5..45 degrees", "the altitude of the visible skyline in degrees: 0 for a flat horizon, 2 behind low hills", 0},
 		{"band-wrong-kind.yaml", "feeds[0].kinds[0].low", "10", "applies only to golden-hour and blue-hour", "sun-band:10..30", 0},

@@ -360,6 +360,18 @@ func ElevationHint(v float64) string {
 	return hint
 }
 
+// LongitudeHint is the hint of a longitude out of range (a site's
+// longitude, --lon, an ad-hoc feed's lon): LongitudeText, and for one
+// counted east all the way round, past 180 and under 360 (as some maps and
+// GPS units give it), the longitude to write: -176.56 (176.56°W) for 183.44.
+func LongitudeHint(v float64) string {
+	if !(v > 180 && v < 360) {
+		return LongitudeText
+	}
+	w := math.Round((v-360)*1e9) / 1e9 // 183.44 − 360 without the float's tail
+	return fmt.Sprintf("decimal degrees, east positive, west negative: write %s (%s°W) for %s° counted east", ftoa(w), ftoa(-w), ftoa(v))
+}
+
 // TemperatureHint is the hint of a temperature out of range (a site's
 // temperature_c, --temperature): "degrees Celsius, not Fahrenheit", with
 // the degrees Celsius of a value over the range that fits as Fahrenheit,
@@ -596,7 +608,7 @@ func (s *Site) validate(ps *problems, p string) {
 		ps.add(p+".latitude", ftoa(s.Latitude), "must be within -90..90", LatitudeText)
 	}
 	if !(s.Longitude >= -180 && s.Longitude <= 180) {
-		ps.add(p+".longitude", ftoa(s.Longitude), "must be within -180..180", LongitudeText)
+		ps.add(p+".longitude", ftoa(s.Longitude), "must be within -180..180", LongitudeHint(s.Longitude))
 	}
 	if !(s.Elevation >= MinElevation && s.Elevation <= MaxElevation) {
 		ps.add(p+".elevation", ftoa(s.Elevation), fmt.Sprintf("must be within %g..%g metres", MinElevation, MaxElevation), ElevationHint(s.Elevation))

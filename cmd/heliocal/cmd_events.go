@@ -189,7 +189,7 @@ func eventsPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 	case math.IsNaN(o.lat) || o.lat < -90 || o.lat > 90:
 		return nil, badInput("--lat: %v: must be within -90..90 (%s)", o.lat, config.LatitudeText)
 	case math.IsNaN(o.lon) || o.lon < -180 || o.lon > 180:
-		return nil, badInput("--lon: %v: must be within -180..180 (%s)", o.lon, config.LongitudeText)
+		return nil, badInput("--lon: %v: must be within -180..180 (%s)", o.lon, config.LongitudeHint(o.lon))
 	case !(o.elev >= config.MinElevation && o.elev <= config.MaxElevation):
 		return nil, badInput("--elev: %v: must be within %g..%g metres (%s)", o.elev, config.MinElevation, config.MaxElevation, config.ElevationHint(o.elev))
 	case o.pressure != nil && !(*o.pressure >= config.MinPressure && *o.pressure <= config.MaxPressure):

@@ -27,6 +27,15 @@ func TestEventsCoordinatesRequired(t *testing.T) {
 	}
 }
 
+// A --lon counted east all the way round (183.44 for the Chatham Islands,
+// 176.56°W) is told the longitude to write.
+func TestEventsLongitudeCountedEast(t *testing.T) {
+	code, out, errOut := runCLI(t, "events", "--lat", "-43.95", "--lon", "183.44", "--tz", "Pacific/Chatham", "--kinds", "sunrise")
+	if want := "--lon: 183.44: must be within -180..180 (decimal degrees, east positive, west negative: write -176.56 (176.56°W) for 183.44° counted east)"; code != exitInput || !strings.Contains(errOut, want) || out != "" {
+		t.Errorf("exit %d, stderr %q, stdout %q; want exit 2 with %q", code, errOut, out, want)
+	}
+}
+
 // A --tz the tz database does not know, beside --lat and --lon, is told the
 // zone in force at the place, as a site's timezone is: "+12:45" at the
 // Chatham Islands is Pacific/Chatham (the tz database's zone1970.tab: NZ,

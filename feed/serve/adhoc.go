@@ -427,6 +427,9 @@ func parseCoord(get getter, name string, limit float64, hint string) (float64, e
 		return 0, err
 	}
 	if f < -limit || f > limit {
+		if name == ParamLongitude {
+			hint = config.LongitudeHint(f) // 183.44: -176.56
+		}
 		return 0, &QueryError{Param: name, Value: v, Msg: fmt.Sprintf("must be within -%g..%g (%s)", limit, limit, hint)}
 	}
 	return math.Round(f*coordDecimals)/coordDecimals + 0, nil

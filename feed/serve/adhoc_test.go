@@ -53,6 +53,9 @@ func TestAdhocBadParameters(t *testing.T) {
 		{"lat=47&tz=UTC&kinds=sunrise", "lon", ""},
 		{"lat=47&lon=180.5&tz=UTC&kinds=sunrise", "lon", `"180.5"`},
 		{"lat=47&lon=-181&tz=UTC&kinds=sunrise", "lon", `"-181"`},
+		// counted east all the way round: the longitude to write (the Chatham
+		// Islands, 176.56°W)
+		{"lat=-43.95&lon=183.44&tz=UTC&kinds=sunrise", "lon", `"183.44": must be within -180..180 (decimal degrees, east positive, west negative: write -176.56 (176.56°W) for 183.44° counted east)`},
 		{ok + "&name=", "name", `""`},
 		{ok + "&name=" + strings.Repeat("a", 81), "name", "1..80"},
 		{ok + "&name=a%00b", "name", "control"},

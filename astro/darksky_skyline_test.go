@@ -3,6 +3,7 @@ package astro
 import (
 	"context"
 	"errors"
+	"math"
 	"testing"
 	"time"
 )
@@ -193,5 +194,58 @@ func TestSkylineEmpty(t *testing.T) {
 		if !errors.As(err, &ie) || err.Error() != "astro: skyline points 0: needs at least one [azimuth, altitude] point" {
 			t.Errorf("%s: error %v, want an *InputError for the skyline", name, err)
 		}
+	}
+}
+
+// TestSkylineUnchecked: a Skyline written as a literal, not made by
+// NewSkyline, is refused by every skyline query with an *InputError naming
+// the point, where the search would otherwise interpolate between the wrong
+// points (unsorted, 360 beside 0, a direction twice) or compare with a NaN
+// and find nothing.
+func TestSkylineUnchecked(t *testing.T) {
+	from := time.Date(2027, 3, 1, 0, 0, 0, 0, time.UTC)
+	e, err := NewMoonEphemeris(from, from.AddDate(0, 0, 3))
+	if err != nil {
+		t.Fatal(err)
+	}
+	o := Observer{Latitude: 46.5, Longitude: 8.0}
+	to := from.AddDate(0, 0, 1)
+	ctx := context.Background()
+	queries := map[string]func(Skyline) error{
+		"SunSkylineCrossings":  func(s Skyline) error { _, err := e.Sun().SunSkylineCrossings(o, s, from, to); return err },
+		"SunSkylineSpans":      func(s Skyline) error { _, err := e.Sun().SunSkylineSpans(o, s, from, to); return err },
+		"MoonSkylineCrossings": func(s Skyline) error { _, err := e.MoonSkylineCrossings(o, s, from, to); return err },
+		"MoonSkylineRiseSet":   func(s Skyline) error { _, err := e.MoonSkylineRiseSet(o, s, from, to); return err },
+		"MoonSkylineSpans":     func(s Skyline) error { _, err := e.MoonSkylineSpans(o, s, from, to); return err },
+		"MoonSkylineDays": func(s Skyline) error {
+			_, err := e.MoonSkylineDays(ctx, o, s, time.UTC, from, from)
+			return err
+		},
+		"DarkSkylineWindows": func(s Skyline) error {
+			_, err := e.DarkSkylineWindows(ctx, o, s, time.UTC, from, from, 0)
+			return err
+		},
+	}
+	for _, tc := range []struct {
+		name string
+		sky  Skyline
+		want string
+	}{
+		{"unsorted", Skyline{{200, 3}, {10, 12}}, "astro: skyline azimuth 10: follows 200: the points must be sorted by azimuth, each direction once (NewSkyline sorts them)"},
+		{"twice", Skyline{{10, 3}, {10, 12}}, "astro: skyline azimuth 10: follows 10: the points must be sorted by azimuth, each direction once (NewSkyline sorts them)"},
+		{"360", Skyline{{10, 3}, {360, 12}}, "astro: skyline azimuth 360: must be below 360 in a Skyline (NewSkyline makes 360 0)"},
+		{"NaN altitude", Skyline{{10, 3}, {90, math.NaN()}}, "astro: skyline altitude NaN: must be within -5..45 degrees"},
+		{"altitude 60", Skyline{{10, 60}, {90, 3}}, "astro: skyline altitude 60: must be within -5..45 degrees"},
+		{"negative azimuth", Skyline{{-10, 3}, {90, 3}}, "astro: skyline azimuth -10: must be within 0..360 degrees from the north through the east"},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			for name, q := range queries {
+				err := q(tc.sky)
+				var ie *InputError
+				if !errors.As(err, &ie) || !errors.Is(err, ErrInvalidInput) || err.Error() != tc.want {
+					t.Errorf("%s: error %v, want %q", name, err, tc.want)
+				}
+			}
+		})
 	}
 }

@@ -42,22 +42,22 @@ type SkyPoint struct {
 }
 
 // Skyline is a site's visible horizon, sorted by azimuth (see NewSkyline).
+// The skyline queries (SunSkylineCrossings and the others) return an
+// *InputError for one that NewSkyline would not give: empty, with a point
+// out of range or NaN, or not strictly sorted by azimuth within [0, 360).
 type Skyline []SkyPoint
 
 // NewSkyline checks and sorts skyline points: at least one, azimuths within
 // 0..360 (360 is 0) and distinct, altitudes within −5..45°. A single point
 // is a skyline at one altitude in every direction.
 func NewSkyline(points []SkyPoint) (Skyline, error) {
-	if err := Skyline(points).check(); err != nil {
-		return nil, err
+	if len(points) == 0 {
+		return nil, noSkyline()
 	}
 	s := make(Skyline, len(points))
 	for i, p := range points {
-		if !(p.Azimuth >= 0 && p.Azimuth <= 360) {
-			return nil, &InputError{"skyline azimuth", p.Azimuth, "must be within 0..360 degrees from the north through the east"}
-		}
-		if !(p.Altitude >= -5 && p.Altitude <= 45) {
-			return nil, &InputError{"skyline altitude", p.Altitude, "must be within -5..45 degrees"}
+		if err := p.check(); err != nil {
+			return nil, err
 		}
 		s[i] = SkyPoint{math.Mod(p.Azimuth, 360), p.Altitude}
 	}
@@ -68,6 +68,23 @@ func NewSkyline(points []SkyPoint) (Skyline, error) {
 		}
 	}
 	return s, nil
+}
+
+// noSkyline returns the error for a skyline without points.
+func noSkyline() error {
+	return &InputError{"skyline points", 0, "needs at least one [azimuth, altitude] point"}
+}
+
+// check returns an *InputError for a point outside the ranges NewSkyline
+// accepts (NaN and infinities included).
+func (p SkyPoint) check() error {
+	if !(p.Azimuth >= 0 && p.Azimuth <= 360) {
+		return &InputError{"skyline azimuth", p.Azimuth, "must be within 0..360 degrees from the north through the east"}
+	}
+	if !(p.Altitude >= -5 && p.Altitude <= 45) {
+		return &InputError{"skyline altitude", p.Altitude, "must be within -5..45 degrees"}
+	}
+	return nil
 }
 
 // Altitude returns the skyline's altitude (degrees) in the direction az
@@ -279,11 +296,26 @@ func (e *MoonEphemeris) moonSkyline(o Observer, st *site, sky Skyline, a, b floa
 	return skylineCrossings(e.moon, st, lo, hi, f, a, b)
 }
 
-// check returns an *InputError for a skyline without points, which
-// NewSkyline and every skyline query refuse.
+// check returns an *InputError for a skyline that NewSkyline would not have
+// given, which every skyline query refuses: one without points, with a point
+// out of range (a NaN among them) or with azimuths not strictly increasing
+// within 0..360 (a Skyline written as a literal, unsorted, with 360 for 0 or
+// a direction twice), on which Altitude would interpolate between the wrong
+// points.
 func (s Skyline) check() error {
 	if len(s) == 0 {
-		return &InputError{"skyline points", 0, "needs at least one [azimuth, altitude] point"}
+		return noSkyline()
+	}
+	for i, p := range s {
+		if err := p.check(); err != nil {
+			return err
+		}
+		if p.Azimuth == 360 {
+			return &InputError{"skyline azimuth", p.Azimuth, "must be below 360 in a Skyline (NewSkyline makes 360 0)"}
+		}
+		if i > 0 && p.Azimuth <= s[i-1].Azimuth {
+			return &InputError{"skyline azimuth", p.Azimuth, fmt.Sprintf("follows %g: the points must be sorted by azimuth, each direction once (NewSkyline sorts them)", s[i-1].Azimuth)}
+		}
 	}
 	return nil
 }
@@ -357,6 +389,9 @@ func (e *MoonEphemeris) MoonSkylineRiseSet(o Observer, sky Skyline, from, to tim
 // AlwaysAbove when the Moon's upper limb is over the skyline in the middle
 // of the date.
 func (e *MoonEphemeris) MoonSkylineDays(ctx context.Context, o Observer, sky Skyline, loc *time.Location, first, last time.Time) ([]Day, error) {
+	if err := sky.check(); err != nil {
+		return nil, err
+	}
 	if flat, ok := sky.flat(); ok {
 		o.Horizon = flat
 		return e.MoonDays(ctx, o, loc, first, last)

@@ -58,7 +58,9 @@ const (
 )
 
 // LunarEclipse is one eclipse of the Moon; its instants are the same for
-// every site.
+// every site. LunarEclipses makes them with the Moon's track that Local
+// needs; a LunarEclipse made otherwise (its zero value, a literal) has none,
+// and its Local circumstances are all zero.
 type LunarEclipse struct {
 	Type EclipseType // Penumbral, Partial or Total
 	// The contacts: penumbral P1 and P4, umbral (partial phase) U1 and U4,
@@ -211,8 +213,12 @@ func (l *LocalLunarEclipse) Visible() bool {
 // Local returns the eclipse's circumstances at the observer's site. The
 // observer must be valid: Local does not check it (call Observer.Validate
 // first), and an invalid one gives meaningless circumstances (NaN altitudes
-// for a NaN latitude).
+// for a NaN latitude). For a LunarEclipse not made by LunarEclipses every
+// contact is zero (IsZero) and Visible is false.
 func (e *LunarEclipse) Local(o Observer) LocalLunarEclipse {
+	if e.s == nil {
+		return LocalLunarEclipse{Eclipse: e}
+	}
 	st := newSite(o)
 	// The Moon's rise/set altitude for its distance at maximum: its
 	// semidiameter changes by well under 1″ during an eclipse.

@@ -76,6 +76,9 @@ const (
 	Penumbral
 )
 
+// String returns the type in lower case: "partial", "annular", "total",
+// "hybrid" or "penumbral"; "none" for any other value (the Type of a site
+// that sees no phase).
 func (t EclipseType) String() string {
 	switch t {
 	case Partial:
@@ -93,7 +96,9 @@ func (t EclipseType) String() string {
 }
 
 // SolarEclipse is one solar eclipse as seen from the whole Earth, with its
-// Besselian elements for the local circumstances of any site.
+// Besselian elements for the local circumstances of any site. SolarEclipses
+// makes them; a SolarEclipse made otherwise (its zero value, a literal) has
+// no elements: Elements gives NaN and Local no circumstances.
 type SolarEclipse struct {
 	// Greatest is the instant the shadow axis passes nearest the Earth's
 	// centre (UTC).
@@ -109,12 +114,20 @@ type SolarEclipse struct {
 	el   *chebSet
 }
 
-// Elements returns the Besselian elements at the UTC instant t, which must
-// lie within a few hours of Greatest: x, y, l1, l2 in Earth radii, d and μ
-// in degrees (μ in [0, 360)), tan f1 and tan f2.
+// Elements returns the Besselian elements at the UTC instant t: x, y, l1,
+// l2 in Earth radii, d and μ in degrees (μ in [0, 360)), tan f1 and tan f2.
+// They are fitted over the twelve hours centred on the new moon, which hold
+// Greatest and the whole eclipse; for an instant outside them (more than
+// about six hours from Greatest), where the fit would run wild, every value
+// is NaN.
 func (e *SolarEclipse) Elements(t time.Time) (x, y, d, mu, l1, l2, tanF1, tanF2 float64) {
+	sec := unixSeconds(t)
+	if e.el == nil || !(sec >= e.el.a && sec <= e.el.b) {
+		n := math.NaN()
+		return n, n, n, n, n, n, n, n
+	}
 	var v [beCount]float64
-	e.el.eval(unixSeconds(t), v[:])
+	e.el.eval(sec, v[:])
 	return v[beX], v[beY], v[beD] * rad2deg, norm360(v[beMu] * rad2deg), v[beL1], v[beL2], v[beTanF1], v[beTanF2]
 }
 
@@ -299,8 +312,12 @@ type solarLocal struct {
 // false when the site sees no phase of it (whether the Sun is up or not:
 // see Visible). The observer must be valid: Local does not check it (call
 // Observer.Validate first), and an invalid one gives meaningless
-// circumstances (a NaN magnitude for a NaN latitude).
+// circumstances (a NaN magnitude for a NaN latitude). For a SolarEclipse not
+// made by SolarEclipses it returns false.
 func (e *SolarEclipse) Local(o Observer) (LocalSolarEclipse, bool) {
+	if e.el == nil {
+		return LocalSolarEclipse{Eclipse: e}, false
+	}
 	st := newSite(o)
 	var v [beCount]float64
 	at := func(sec float64) solarLocal {

@@ -206,6 +206,58 @@ func TestEclipseFit(t *testing.T) {
 	}
 }
 
+// TestEclipseOutsideFit: the Besselian elements are given over the twelve
+// hours fitted around the new moon and NaN outside them, where the series
+// would be extrapolated (two days after Greatest the fit put x at 27.8 Earth
+// radii and μ at 8°); an eclipse not made by SolarEclipses or LunarEclipses
+// (its zero value) has no circumstances instead of a nil dereference.
+func TestEclipseOutsideFit(t *testing.T) {
+	es, err := SolarEclipses(utc("2027-08-01T00:00:00Z"), utc("2027-08-03T00:00:00Z"))
+	if err != nil || len(es) != 1 {
+		t.Fatal(err)
+	}
+	e := es[0]
+	for _, tc := range []struct {
+		name string
+		t    time.Time
+		nan  bool
+	}{
+		{"start of the fit", secToTime(e.el.a + 1), false},
+		{"greatest", e.Greatest, false},
+		{"end of the fit", secToTime(e.el.b - 1), false},
+		{"a minute before the fit", secToTime(e.el.a - 60), true},
+		{"two days after", e.Greatest.Add(48 * time.Hour), true},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			x, y, d, mu, l1, l2, f1, f2 := e.Elements(tc.t)
+			for i, v := range []float64{x, y, d, mu, l1, l2, f1, f2} {
+				if math.IsNaN(v) != tc.nan {
+					t.Errorf("element %d at %s = %g, want NaN: %v", i, tc.t.Format(time.RFC3339), v, tc.nan)
+				}
+			}
+		})
+	}
+
+	o := Observer{Latitude: 48.21, Longitude: 16.37}
+	var zs SolarEclipse
+	if x, _, _, _, _, _, _, _ := zs.Elements(e.Greatest); !math.IsNaN(x) {
+		t.Errorf("zero SolarEclipse: x = %g, want NaN", x)
+	}
+	if l, ok := zs.Local(o); ok || l.Visible() || l.Eclipse != &zs {
+		t.Errorf("zero SolarEclipse: Local = %+v, %v, want no circumstances", l, ok)
+	}
+	var zl LunarEclipse
+	l := zl.Local(o)
+	if l.Visible() || l.Eclipse != &zl || len(l.Horizon) != 0 {
+		t.Errorf("zero LunarEclipse: Local = %+v, want no circumstances", l)
+	}
+	for i, c := range []Contact{l.P1, l.U1, l.U2, l.Max, l.U3, l.U4, l.P4} {
+		if !c.IsZero() {
+			t.Errorf("zero LunarEclipse: contact %d = %+v, want zero", i, c)
+		}
+	}
+}
+
 // TestEclipseRange checks the errors for instants outside 1800–2200.
 func TestEclipseRange(t *testing.T) {
 	if _, err := SolarEclipses(utc("1700-01-01T00:00:00Z"), utc("1701-01-01T00:00:00Z")); err == nil {

@@ -18,7 +18,7 @@ import (
 // DateStart returns the first instant of the local date y-m-d in loc: its
 // local midnight, or, when the clocks jump over midnight, the instant of the
 // jump. When the clocks go back over midnight it is the first of the two
-// midnights.
+// midnights. Like time.Date, it panics when loc is nil.
 func DateStart(loc *time.Location, y int, m time.Month, d int) time.Time {
 	return wallStart(loc, y, m, d, 0)
 }

@@ -63,9 +63,9 @@ const (
 // and its Local circumstances are all zero.
 type LunarEclipse struct {
 	Type EclipseType // Penumbral, Partial or Total
-	// The contacts: penumbral P1 and P4, umbral (partial phase) U1 and U4,
-	// total phase U2 and U3; zero when they do not happen. Max is the
-	// greatest eclipse.
+	// The contacts (UTC): penumbral P1 and P4, umbral (partial phase) U1
+	// and U4, total phase U2 and U3; zero when they do not happen. Max is
+	// the greatest eclipse.
 	P1, U1, U2, Max, U3, U4, P4 time.Time
 	// UmbralMagnitude and PenumbralMagnitude are the fractions of the
 	// Moon's diameter inside the umbra and the penumbra at Max (negative

@@ -273,7 +273,7 @@ func (c Contact) IsZero() bool { return c.Time.IsZero() }
 // HorizonEvent is a rising or a setting of the body during an eclipse, with
 // the eclipse's magnitude at that instant.
 type HorizonEvent struct {
-	Time      time.Time
+	Time      time.Time // UTC
 	Direction Direction // Rising or Setting
 	Magnitude float64   // fraction of the Sun's diameter covered (solar), umbral magnitude (lunar)
 }

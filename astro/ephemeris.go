@@ -32,7 +32,12 @@ const (
 	BlueHourLow          = -6.0
 )
 
-// Observer is a place on the Earth.
+// Observer is a place on the Earth. Its zero value is a valid place: 0° N
+// 0° E at sea level (in the Gulf of Guinea), a flat horizon and the standard
+// refraction of almanacs. Validate gives the ranges of its fields: the
+// searches of an Ephemeris or a MoonEphemeris, SunFrom and MoonFrom check
+// them and return its error; the eclipses' Local and the Observer's own
+// methods do not.
 type Observer struct {
 	Latitude, Longitude float64 // degrees, geodetic (WGS 84), north and east positive
 	// Elevation is the height above sea level in metres. It lowers the
@@ -68,6 +73,10 @@ func (o Observer) RefractionFactor() float64 {
 // ICAO standard atmosphere at elevation metres (ISO 2533: 1013.25 hPa and
 // 15 °C at sea level, temperature falling 6.5 °C per km):
 // P = 1013.25 · (1 − 0.0065·h / 288.15)^5.25588. At 2400 m: 756 hPa, −0.6 °C.
+// It is the formula of the troposphere, the standard atmosphere below
+// 11 000 m, and is not extended above: its results pass Observer.Validate up
+// to about 15 000 m (then the pressure falls below 100 hPa), and above
+// 44 330 m the pressure is NaN.
 func StandardAtmosphere(elevation float64) (pressure, temperature float64) {
 	return 1013.25 * math.Pow(1-0.0065*elevation/288.15, 5.25588), 15 - 0.0065*elevation
 }
@@ -151,8 +160,9 @@ func (o Observer) RaisedHorizon() bool { return o.Horizon > LevelHorizon }
 
 // Dip returns the dip of the horizon in degrees for an eye elevation
 // metres above a flat (sea) horizon: 1.76′·√elevation (common practice;
-// refraction over the sea included), 0 at or below sea level. From 1150 m
-// it is 59.7′.
+// refraction over the sea included), 0 at or below sea level: 59.7′ at
+// 1150 m, 94.0′ (1.57°) at 2850 m; it grows without a bound, as √elevation.
+// NaN gives NaN.
 func Dip(elevation float64) float64 {
 	if elevation <= 0 {
 		return 0

@@ -56,8 +56,8 @@ type MoonEphemeris struct {
 // NewMoonEphemeris builds the Moon's track (and a Sun Ephemeris) for queries
 // within [from − 2 days, to + 2 days]. from and to must lie within
 // MinTime..MaxTime (else a *RangeError) and from must not be after to. Cost:
-// four lunar positions per day of span, evaluated together (elpUniform,
-// about 7 µs each).
+// four lunar positions per day of span, evaluated together, about 7 µs
+// each.
 func NewMoonEphemeris(from, to time.Time) (*MoonEphemeris, error) {
 	sun, err := NewEphemeris(from, to)
 	if err != nil {

@@ -28,7 +28,8 @@ func ZonePeriod(t time.Time) (start, end time.Time) {
 // zone's periods (ZonePeriod) and steps over their bounds where nothing
 // changes, as Go gives them past the zone data's last transition. Every
 // step moves forward, so the walk ends at to. feed's changes of the clocks
-// and feed/ical's VTIMEZONEs are walked here.
+// and feed/ical's VTIMEZONEs are walked here. Like time.Time.In, the walk
+// panics when loc is nil.
 func ZoneChanges(loc *time.Location, from, to time.Time) iter.Seq[time.Time] {
 	return func(yield func(time.Time) bool) {
 		name, off := from.In(loc).Zone()

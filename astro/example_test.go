@@ -191,3 +191,152 @@ func ExampleEphemeris_SunDays_polarNight() {
 	// Output:
 	// 2027-12-21 always-below 0 0
 }
+
+func ExampleObserver_RiseSetAltitude() {
+	// A site 1,500 m up in the Alps (46.80° N, 9.84° E) sees the Sun rise
+	// earlier and set later than a sea-level site there: its flat horizon
+	// lies 1.76′·√1500 = 68.2′ lower (Dip), so the Sun's centre rises at
+	// −1.97° instead of −0.83°, and the day of the 2026 June solstice is
+	// 17 minutes longer. PyEphem 4.1.4 (the Sun's upper limb at −34′ less
+	// the dip, pressure 0) gives 05:26:26–21:18:28 CEST at sea level
+	// (15 h 52 min 3 s) and 05:18:04–21:26:50 at 1,500 m (16 h 8 min 46 s):
+	// the same minutes, cut to the minute as printed here.
+	loc, err := time.LoadLocation("Europe/Zurich")
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	date := time.Date(2026, 6, 21, 0, 0, 0, 0, loc)
+	eph, err := astro.NewEphemeris(date, date)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	for _, elevation := range []float64{0, 1500} {
+		site := astro.Observer{Latitude: 46.80, Longitude: 9.84, Elevation: elevation}
+		days, err := eph.SunDays(context.Background(), site, site.RiseSetAltitude(), loc, date, date)
+		if err != nil {
+			fmt.Println(err)
+			return
+		}
+		rise, set := days[0].Rising[0], days[0].Setting[0]
+		fmt.Printf("elevation %.0f m: Sun's centre at %.2f°, sunrise %s, sunset %s, day %s\n", elevation, site.RiseSetAltitude(),
+			rise.In(loc).Truncate(time.Minute).Format("15:04"), set.In(loc).Truncate(time.Minute).Format("15:04"),
+			set.Sub(rise).Truncate(time.Minute))
+	}
+	// Output:
+	// elevation 0 m: Sun's centre at -0.83°, sunrise 05:26, sunset 21:18, day 15h52m0s
+	// elevation 1500 m: Sun's centre at -1.97°, sunrise 05:18, sunset 21:26, day 16h8m0s
+}
+
+func ExampleEphemeris_SunDays_polarTwilight() {
+	// In Tromsø (69.65° N, 18.96° E) at the December solstice the Sun does
+	// not rise (State AlwaysBelow for sunrise and sunset) but comes within
+	// 6° of the horizon around noon: civil, nautical and astronomical
+	// twilight each have a dawn and a dusk. PyEphem 4.1.4 (the Sun's centre
+	// at −6°, −12°, −18°, pressure 0) gives 09:31:15–13:53:10,
+	// 07:46:43–15:37:42 and 06:28:20–16:56:05 CET, rounded as printed here,
+	// and raises NeverUpError for sunrise.
+	loc, err := time.LoadLocation("Europe/Oslo")
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	date := time.Date(2026, 12, 21, 0, 0, 0, 0, loc)
+	eph, err := astro.NewEphemeris(date, date)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	site := astro.Observer{Latitude: 69.6492, Longitude: 18.9553}
+	for _, th := range []struct {
+		name     string
+		altitude float64
+	}{
+		{"sunrise/set", site.RiseSetAltitude()},
+		{"civil", astro.CivilTwilight},
+		{"nautical", astro.NauticalTwilight},
+		{"astronomical", astro.AstronomicalTwilight},
+	} {
+		days, err := eph.SunDays(context.Background(), site, th.altitude, loc, date, date)
+		if err != nil {
+			fmt.Println(err)
+			return
+		}
+		d := days[0]
+		if d.State != astro.Crosses {
+			fmt.Printf("%-12s %s\n", th.name, d.State)
+			continue
+		}
+		fmt.Printf("%-12s %s–%s\n", th.name, d.Rising[0].In(loc).Round(time.Minute).Format("15:04"), d.Setting[0].In(loc).Round(time.Minute).Format("15:04"))
+	}
+	// Output:
+	// sunrise/set  always-below
+	// civil        09:31–13:53
+	// nautical     07:47–15:38
+	// astronomical 06:28–16:56
+}
+
+func ExampleMoonFrom() {
+	// The Moon from Vienna (48.21° N, 16.37° E) on the evening of the full
+	// moon of 2027 March 22, at 21:00 UTC: its topocentric altitude (no
+	// refraction) and azimuth, its distance from the site and how much of
+	// it is lit (MoonIllumination, from the Earth's centre). PyEphem 4.1.4
+	// (ephem.Moon for an Observer at elevation 0, pressure 0) gives altitude
+	// 26.8255°, azimuth 141.2112°, distance 371263.6 km and phase 99.66 %,
+	// printed here as far as the two agree.
+	site := astro.Observer{Latitude: 48.21, Longitude: 16.37}
+	t := time.Date(2027, 3, 22, 21, 0, 0, 0, time.UTC)
+	moon, err := astro.MoonFrom(site, t)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	lit, err := astro.MoonIllumination(t)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("altitude %.2f°, azimuth %.2f° (%s), %.1f thousand km away, %.1f %% lit\n",
+		moon.Altitude, moon.Azimuth, astro.CompassPoint(moon.Azimuth), moon.Distance/1000, lit.Fraction*100)
+	// Output:
+	// altitude 26.83°, azimuth 141.21° (south-east), 371.3 thousand km away, 99.7 % lit
+}
+
+func ExampleLunarEclipses() {
+	// The lunar eclipses of 2028, with the Moon's altitude at the greatest
+	// eclipse from Vienna (48.21° N, 16.37° E, 190 m) by Local. The Swiss
+	// Ephemeris 2.10.03 (testdata/reference/eclipses-swiss.csv, the rows
+	// for Vienna and, for July's magnitude, Cairo, where all of it is seen)
+	// gives the greatest eclipses 01-12 04:13:07, 07-06 18:19:45 and 12-31
+	// 16:52:08 UT, the partial phases 03:45:01–04:41:15, 17:08:58–19:30:30
+	// and 15:07:41–18:36:34, the total phase 16:16:27–17:27:48 and umbral
+	// magnitudes 0.0667, 0.3893 and 1.2462: the same minutes, cut to the
+	// minute as printed here (its shadow enlargement is not Danjon's: the
+	// contacts differ by a few seconds).
+	// PyEphem 4.1.4 (pressure 0) has the Moon at 24.04°, −5.87° and 15.28°
+	// then, and the July moonrise, with the dip of 190 m, at 18:53:51 UT.
+	eclipses, err := astro.LunarEclipses(time.Date(2028, 1, 1, 0, 0, 0, 0, time.UTC), time.Date(2029, 1, 1, 0, 0, 0, 0, time.UTC))
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	vienna := astro.Observer{Latitude: 48.21, Longitude: 16.37, Elevation: 190}
+	hm := func(t time.Time) string { return t.Truncate(time.Minute).Format("15:04") }
+	for _, e := range eclipses {
+		fmt.Printf("%s %-7s umbral magnitude %.2f, partial %s–%s", e.Max.Truncate(time.Minute).Format("2006-01-02 15:04"), e.Type, e.UmbralMagnitude, hm(e.U1), hm(e.U4))
+		if !e.U2.IsZero() {
+			fmt.Printf(", total %s–%s", hm(e.U2), hm(e.U3))
+		}
+		l := e.Local(vienna)
+		fmt.Printf("; from Vienna the Moon at %.1f°", l.Max.Altitude)
+		for _, h := range l.Horizon {
+			fmt.Printf(", %s at %s", map[astro.Direction]string{astro.Rising: "moonrise", astro.Setting: "moonset"}[h.Direction], hm(h.Time))
+		}
+		fmt.Println()
+	}
+	// Output:
+	// 2028-01-12 04:13 partial umbral magnitude 0.07, partial 03:45–04:41; from Vienna the Moon at 24.0°
+	// 2028-07-06 18:19 partial umbral magnitude 0.39, partial 17:08–19:30; from Vienna the Moon at -5.9°, moonrise at 18:53
+	// 2028-12-31 16:52 total   umbral magnitude 1.25, partial 15:07–18:36, total 16:16–17:27; from Vienna the Moon at 15.3°, moonrise at 14:55
+}

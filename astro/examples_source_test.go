@@ -11,9 +11,10 @@ import (
 )
 
 // namesSource matches a source the examples are checked against: a U.S.
-// Naval Observatory table, Meeus's Astronomical Algorithms or PyEphem with
-// its version (its figures move between versions).
-var namesSource = regexp.MustCompile(`U\.S\. Naval Observatory|USNO|Meeus|PyEphem [0-9]`)
+// Naval Observatory table, Meeus's Astronomical Algorithms, or PyEphem or
+// the Swiss Ephemeris with its version (their figures move between
+// versions).
+var namesSource = regexp.MustCompile(`U\.S\. Naval Observatory|USNO|Meeus|PyEphem [0-9]|Swiss Ephemeris [0-9]`)
 
 // TestExamplesNameTheirSource holds the README's word on this package's
 // runnable examples: each that prints an astronomical result names, in its

@@ -48,7 +48,9 @@ import (
 // documentation says it returns a *RangeError outside MinTime..MaxTime, it
 // still computes within RangeMargin beyond either end (so that the first and
 // last local dates can be computed in any zone) and refuses what lies
-// further.
+// further. They are variables only because a time.Time cannot be a
+// constant: the range checks read them, so a program must not assign to
+// them.
 var (
 	// MinTime is the first instant this package supports.
 	MinTime = time.Date(1800, 1, 1, 0, 0, 0, 0, time.UTC)

@@ -48,8 +48,13 @@ func Seasons(year int) ([4]time.Time, error) {
 // CrossQuarterLongitudes are the Sun's apparent longitudes (degrees) at the
 // cross-quarter instants CrossQuarters returns, in its order: 315° (early
 // February, between the December solstice and the March equinox), 45° (early
-// May), 135° (early August), 225° (early November).
-var CrossQuarterLongitudes = [4]float64{315, 45, 135, 225}
+// May), 135° (early August), 225° (early November). It is a copy for
+// reading: CrossQuarters keeps its own, which assigning to this variable
+// does not change.
+var CrossQuarterLongitudes = crossQuarterLongitudes
+
+// crossQuarterLongitudes are the longitudes CrossQuarters solves for.
+var crossQuarterLongitudes = [4]float64{315, 45, 135, 225}
 
 // CrossQuarters returns the instants (UTC) in year when the Sun's apparent
 // longitude is CrossQuarterLongitudes[i]: 315° (early February), 45° (early
@@ -59,7 +64,7 @@ var CrossQuarterLongitudes = [4]float64{315, 45, 135, 225}
 // 1799..2201.
 func CrossQuarters(year int) ([4]time.Time, error) {
 	var out [4]time.Time
-	for i, lon := range CrossQuarterLongitudes {
+	for i, lon := range crossQuarterLongitudes {
 		t, err := SolarLongitudeTime(year, lon)
 		if err != nil {
 			return out, err

@@ -409,3 +409,20 @@ func TestDeltaTMonthStarts(t *testing.T) {
 		}
 	}
 }
+
+// TestCrossQuartersOwnLongitudes: CrossQuarterLongitudes is a variable a
+// program could assign to; CrossQuarters keeps its own longitudes, so that
+// such an assignment changes no result of the package.
+func TestCrossQuartersOwnLongitudes(t *testing.T) {
+	want, err := CrossQuarters(2027)
+	if err != nil {
+		t.Fatal(err)
+	}
+	saved := CrossQuarterLongitudes
+	defer func() { CrossQuarterLongitudes = saved }()
+	CrossQuarterLongitudes = [4]float64{0, 90, 180, 270}
+	got, err := CrossQuarters(2027)
+	if err != nil || got != want {
+		t.Errorf("CrossQuarters(2027) after assigning to CrossQuarterLongitudes = %v, %v, want %v", got, err, want)
+	}
+}

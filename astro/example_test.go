@@ -315,7 +315,8 @@ func ExampleLunarEclipses() {
 	// minute as printed here (its shadow enlargement is not Danjon's: the
 	// contacts differ by a few seconds).
 	// PyEphem 4.1.4 (pressure 0) has the Moon at 24.04°, −5.87° and 15.28°
-	// then, and the July moonrise, with the dip of 190 m, at 18:53:51 UT.
+	// then, and the moonrises of July 6 and December 31, with the dip of
+	// 190 m, at 18:53:51 and 14:55:06 UT.
 	eclipses, err := astro.LunarEclipses(time.Date(2028, 1, 1, 0, 0, 0, 0, time.UTC), time.Date(2029, 1, 1, 0, 0, 0, 0, time.UTC))
 	if err != nil {
 		fmt.Println(err)

@@ -69,8 +69,11 @@ type Site struct {
 	// HorizonSet is true when the horizon is one altitude as written (the
 	// horizon key, --horizon, an ad-hoc horizon=), 0 included: a written 0
 	// is a level horizon at 0° (refraction at that altitude, no dip), an
-	// unset one the flat horizon lowered by the dip of Elevation.
-	HorizonSet bool `mapstructure:"-"`
+	// unset one the flat horizon lowered by the dip of Elevation. In the
+	// configuration's fingerprint (publish's configDigest) only for a
+	// written 0, so that it is the one versions without the field computed
+	// for every other file.
+	HorizonSet bool `mapstructure:"-" json:",omitempty"`
 	// Skyline is the horizon per direction, [azimuth, altitude] points in
 	// degrees (azimuth from the north through the east), sorted by azimuth;
 	// nil when the horizon is one altitude. From the file's horizon key: a

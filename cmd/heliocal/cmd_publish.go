@@ -11,6 +11,7 @@ import (
 	"os"
 	"path/filepath"
 	"runtime/debug"
+	"slices"
 	"strings"
 	"syscall"
 	"time"
@@ -327,15 +328,29 @@ func publishingWhat(srcs []publish.Source, shard publish.Shard) string {
 
 // configDigest fingerprints what shapes the published files: the sites, the
 // feeds, the base URL and the refresh schedule. Shards of one run must agree
-// on it (publish refuses to mix configurations in one directory).
+// on it (publish refuses to mix configurations in one directory). It is the
+// JSON of the parsed configuration, so a field added to config.Site,
+// config.Feed or what they hold is left out of it (`json:",omitempty"`)
+// where it says nothing the versions before it did not read from the same
+// file: that file then has the same fingerprint in both, and shards of one
+// run may be published by two versions, as while machines are upgraded one
+// by one (TestConfigDigestAcrossVersions). Site.HorizonSet is in it only
+// for a written horizon: 0, which those versions read as the flat horizon
+// lowered by the dip; a horizon other than 0 says it is set.
 func configDigest(cfg *config.Config, base string) (string, error) {
+	sites := slices.Clone(cfg.Sites)
+	for i := range sites {
+		if sites[i].Horizon != 0 {
+			sites[i].HorizonSet = false
+		}
+	}
 	b, err := json.Marshal(struct {
 		Sites       []config.Site
 		Feeds       []config.Feed
 		BaseURL     string
 		Refresh     string
 		RefreshZone config.Zone
-	}{cfg.Sites, cfg.Feeds, base, cfg.Service.Refresh, cfg.Service.RefreshZone})
+	}{sites, cfg.Feeds, base, cfg.Service.Refresh, cfg.Service.RefreshZone})
 	if err != nil {
 		return "", fmt.Errorf("publish: configuration fingerprint: %w", err)
 	}

@@ -252,7 +252,7 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		if list != "sites" || key != "timezone" || n < 0 || n >= len(c.Sites) || n >= len(located) || !located[n][0] || !located[n][1] {
 			continue
 		}
-		problems[i].Hint = zoneHintAt(problems[i].Value, problems[i].Hint, c.Sites[n].Latitude, c.Sites[n].Longitude, "site", "timezone")
+		problems[i].Hint = zoneHintAt(problems[i].Value, c.Sites[n].Latitude, c.Sites[n].Longitude, "site", "timezone")
 	}
 	// The zones of sites without one are looked up only for a file
 	// without other problems; until then a missing zone is no problem.

@@ -102,34 +102,40 @@ var zoneNames = sync.OnceValue(func() []string {
 // built with (see gen_zonenames.go).
 func ZoneNames() []string { return slices.Clone(zoneNames()) }
 
-// ZoneHint suggests the known zone nearest to a misspelt name: same name with
-// other capitals, same city with another region, or the nearest by edit
-// distance; without one (or for an empty name), two examples of IANA names.
-// The configuration's errors and the ad-hoc feeds' give the same hint.
+// ZoneHint suggests the known zone nearest to a misspelt name (nearZone);
+// for a UTC offset, that it is no zone; without a suggestion (or for an
+// empty name), two examples of IANA names. The configuration's errors and
+// the ad-hoc feeds' give the same hint.
 func ZoneHint(name string) string {
-	const generic = `use an IANA name such as "Europe/Vienna" or "America/New_York"`
-	n := strings.ReplaceAll(strings.TrimSpace(name), " ", "_")
-	if n == "" {
-		return generic
-	}
 	if hint := offsetHint(strings.TrimSpace(name)); hint != "" {
 		return hint
 	}
+	if near := nearZone(name); near != "" {
+		return didYouMean(near)
+	}
+	return `use an IANA name such as "Europe/Vienna" or "America/New_York"`
+}
+
+// nearZone is the known zone a misspelt name likely means: the same name
+// with other capitals, the same city with another region, or the nearest by
+// edit distance; "" for none and for an empty name.
+func nearZone(name string) string {
+	n := strings.ReplaceAll(strings.TrimSpace(name), " ", "_")
+	if n == "" {
+		return ""
+	}
 	for _, z := range zoneNames() {
 		if strings.EqualFold(z, n) {
-			return didYouMean(z)
+			return z
 		}
 	}
 	city := n[strings.LastIndex(n, "/")+1:]
 	for _, z := range zoneNames() {
 		if strings.EqualFold(z[strings.LastIndex(z, "/")+1:], city) {
-			return didYouMean(z)
+			return z
 		}
 	}
-	if near := closest(n, zoneNames()); near != "" {
-		return didYouMean(near)
-	}
-	return generic
+	return closest(n, zoneNames())
 }
 
 // utcOffset is a UTC offset written as a zone: "+01:00", "UTC+1",

@@ -124,30 +124,30 @@ func loadZoneMap() (*zonePolygons, error) {
 // zone near it. key is how the zone is given ("--tz", "tz"), for "leave it
 // out".
 func ZoneHintAt(name string, lat, lon float64, key string) string {
-	return zoneHintAt(name, ZoneHint(name), lat, lon, "place", key)
+	return zoneHintAt(name, lat, lon, "place", key)
 }
 
-// zoneHintAt is the hint of name, a zone the tz database does not know
-// (hint is ZoneHint's), at a site (what: "site", or "place") at lat, lon,
-// whose zone is given by key: the zone in force there when the name's
-// spelling names no zone near it ("Europe/Geneva", Geneva being on
-// Europe/Zurich's time, is not "Europe/Kiev"), or is a UTC offset; a
-// misspelling of a few letters keeps its suggestion, with the zone at the
-// site beside it when that is another. hint when no zone is found there.
-func zoneHintAt(name, hint string, lat, lon float64, what, key string) string {
+// zoneHintAt is the hint of name, a zone the tz database does not know, at
+// a site (what: "site", or "place") at lat, lon, whose zone is given by
+// key: the zone in force there when the name's spelling names no zone near
+// it ("Europe/Geneva", Geneva being on Europe/Zurich's time, is not
+// "Europe/Kiev"), or is a UTC offset; a misspelling of a few letters keeps
+// its suggestion, with the zone at the site beside it when that is another.
+// ZoneHint's when no zone is found there.
+func zoneHintAt(name string, lat, lon float64, what, key string) string {
 	z, err := ZoneAt(lat, lon)
-	if err != nil || hint == didYouMean(z) {
-		return hint
+	if err != nil {
+		return ZoneHint(name)
 	}
 	here := fmt.Sprintf("the zone at the %s's latitude and longitude is %q", what, z)
-	near, misspelt := strings.CutPrefix(hint, "did you mean ")
-	switch {
-	case offsetHint(strings.TrimSpace(name)) != "":
+	if offsetHint(strings.TrimSpace(name)) != "" {
 		return fmt.Sprintf("a UTC offset is not a time zone: %s, which follows its clock changes", here)
-	case misspelt && distance(strings.ToLower(strings.ReplaceAll(strings.TrimSpace(name), " ", "_")), strings.ToLower(strings.Trim(near, `"?`))) <= 2:
-		return hint + " " + here // Europe/Viena at a site in Bratislava
-	case misspelt || hint == ZoneHint(""):
-		return here + "; or leave " + key + " out, and it is taken from them"
 	}
-	return hint // typographic quotes: the name is right
+	switch near := nearZone(name); {
+	case near == z:
+		return didYouMean(near) // ZoneHint's, which is the zone there
+	case near != "" && distance(strings.ToLower(strings.ReplaceAll(strings.TrimSpace(name), " ", "_")), strings.ToLower(near)) <= 2:
+		return didYouMean(near) + " " + here // Europe/Viena at a site in Bratislava
+	}
+	return here + "; or leave " + key + " out, and it is taken from them"
 }

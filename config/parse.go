@@ -193,10 +193,9 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 			if problems[i].Msg == "unknown key" {
 				if h := kindParamHint(settings, problems[i].Path, format); h != "" {
 					problems[i].Hint = h // target: 16h beside kind: lighting
+				} else if format == "toml" {
+					problems[i].Hint = tomlTableHint(settings, problems[i].Path, problems[i].Value, problems[i].Hint)
 				}
-			}
-			if format == "toml" && problems[i].Msg == "unknown key" {
-				problems[i].Hint = tomlTableHint(settings, problems[i].Path, problems[i].Hint)
 			}
 			if format == "toml" && strings.HasSuffix(problems[i].Msg, "not a number") {
 				if w := tomlNumberAt(data, places, problems[i].Path); w != "" {
@@ -1987,10 +1986,10 @@ func problemFor(path string, err error) []FieldError {
 			}
 			fe := FieldError{Path: p, Value: key, Msg: "unknown key"}
 			if len(keys) > 0 {
-				if long := shortKeys[strings.ToLower(key)]; slices.Contains(keys, long) {
-					fe.Hint = didYouMean(long)
+				if near := nearKey(key, keys); near != "" {
+					fe.Hint = didYouMean(near)
 				} else {
-					fe.Hint = nearValue(key, keys, keyElsewhere(key)+"known keys here: "+strings.Join(keys, ", "))
+					fe.Hint = keyElsewhere(key) + "known keys here: " + strings.Join(keys, ", ")
 				}
 			}
 			out = append(out, fe)
@@ -2070,15 +2069,25 @@ func tomlNumberAt(data []byte, places map[string]keyPlace, path string) string {
 	return value
 }
 
-// tomlTableHint is the hint of an unknown key at path of a TOML document
-// (settings, as decoded) written as a table with the name of a list of
+// nearKey is the key of keys, those known where an unknown key is
+// written, that the key likely means: the key a short name stands for
+// ("latitude" for "lat"), or the nearest in spelling; "" for none.
+func nearKey(key string, keys []string) string {
+	if long := shortKeys[strings.ToLower(key)]; slices.Contains(keys, long) {
+		return long
+	}
+	return closest(key, keys)
+}
+
+// tomlTableHint is the hint of key, unknown at path of a TOML document
+// (settings, as decoded), written as a table with the name of a list of
 // tables near it, "[site]" for "[[sites]]": the header to write, in two
-// brackets, for hint's did-you-mean of the list's key, which followed alone
-// gives "[sites]", a table where a list belongs; hint otherwise.
-func tomlTableHint(settings map[string]any, path, hint string) string {
-	near, ok := strings.CutPrefix(hint, "did you mean ")
-	near = strings.Trim(near, `"?`)
-	if !ok || !slices.Contains([]string{"sites", "feeds", "kinds", "plans"}, near) {
+// brackets, for the did-you-mean of the list's key, which followed alone
+// gives "[sites]", a table where a list belongs; hint, key's own, otherwise.
+func tomlTableHint(settings map[string]any, path, key, hint string) string {
+	parent := strings.TrimSuffix(strings.TrimSuffix(path, key), ".")
+	near := nearKey(key, keysAt(parent))
+	if !slices.Contains([]string{"sites", "feeds", "kinds", "plans"}, near) {
 		return hint
 	}
 	if v, _ := valueAt(settings, path); !isMap(v) {

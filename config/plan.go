@@ -410,11 +410,8 @@ func parseDateRule(f []string) (DateRule, *RuleError) {
 		}
 		return DateRule{}, &RuleError{Msg: "not a date rule", Hint: hint}
 	case len(f) == 1:
-		k, err := anchorKind(f[0])
+		k, err := anchorKind(f[0], true)
 		if err != nil {
-			if err.Msg == fmt.Sprintf("unknown kind %q", f[0]) {
-				err.Msg = "unknown kind" // the whole rule, which the problem names
-			}
 			return DateRule{}, err
 		}
 		return DateRule{Type: RuleEvent, Event: k}, nil
@@ -434,7 +431,7 @@ func parseDateRule(f []string) (DateRule, *RuleError) {
 		if !isRelation(f[1]) {
 			return DateRule{}, &RuleError{Msg: fmt.Sprintf("%q: write nearest, before or after", f[1]), Hint: `e.g. "saturday nearest new-moon"`}
 		}
-		k, err := anchorKind(f[2])
+		k, err := anchorKind(f[2], false)
 		if err != nil {
 			return DateRule{}, err
 		}
@@ -474,8 +471,10 @@ var relations = []string{RelNearest, RelBefore, RelAfter}
 func isRelation(s string) bool { return slices.Contains(relations, s) }
 
 // anchorKind parses the event kind a date rule is anchored to: a kind with a
-// few events a year or a month, or photoperiod.
-func anchorKind(s string) (Kind, *RuleError) {
+// few events a year or a month, or photoperiod. whole says that s is the
+// whole rule, which the problem names: an unknown kind is then "unknown
+// kind" without its name.
+func anchorKind(s string, whole bool) (Kind, *RuleError) {
 	k, err := ParseKind(s)
 	if err != nil {
 		ke, ok := err.(*KindError)
@@ -485,7 +484,11 @@ func anchorKind(s string) (Kind, *RuleError) {
 		if ke.Msg == msgUnknownKind {
 			// the kinds that pick dates are a few of all: the hint is the
 			// rule nearRule finds, or the forms of a rule
-			return Kind{}, &RuleError{Msg: fmt.Sprintf("unknown kind %q", ke.Value), Hint: dateRuleHint}
+			msg := fmt.Sprintf("unknown kind %q", ke.Value)
+			if whole {
+				msg = msgUnknownKind
+			}
+			return Kind{}, &RuleError{Msg: msg, Hint: dateRuleHint}
 		}
 		return Kind{}, &RuleError{Msg: fmt.Sprintf("kind %q: %s", ke.Value, ke.Msg), Hint: ke.Hint}
 	}

@@ -180,8 +180,6 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 	if err := v.UnmarshalExact(c, viper.DecodeHook(decodeHook()), func(dc *mapstructure.DecoderConfig) {
 		dc.WeaklyTypedInput = false
 	}); err != nil {
-		problems = decodeProblems(err)
-		settings := v.AllSettings() // built afresh by each call: once for all problems
 		// the values as written, read again for the problems: a document
 		// kept from the start through the decoding held 1.5 times the
 		// memory of a 3,000-site configuration's check
@@ -189,6 +187,8 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		if format == "yaml" {
 			written = yamlDocument(data)
 		}
+		problems = decodeProblems(err, written)
+		settings := v.AllSettings() // built afresh by each call: once for all problems
 		for i := range problems {
 			if problems[i].Msg == "unknown key" {
 				if h := kindParamHint(settings, problems[i].Path, format); h != "" {
@@ -206,10 +206,6 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 			if n != nil && strings.HasSuffix(problems[i].Msg, "not a number") &&
 				(n.Tag == "!!int" || n.Tag == "!!float") && n.Style == 0 && n.Value != problems[i].Value {
 				problems[i].Value = n.Value // 1e3 as written, not the 1000 it is
-			}
-			if n != nil && n.Style == 0 && strings.HasSuffix(problems[i].Hint, ", without quotes") {
-				// utc: yes, written without quotes, is text to YAML 1.2
-				problems[i].Hint = strings.TrimSuffix(problems[i].Hint, ", without quotes")
 			}
 			if problems[i].Value == "" { // a mapping or a list given as one value: name it
 				problems[i].Value = rawAt(settings, problems[i].Path)
@@ -1907,8 +1903,9 @@ func kindValueError(err error) error {
 	return err
 }
 
-// decodeProblems turns the decoder's joined errors into field problems.
-func decodeProblems(err error) []FieldError {
+// decodeProblems turns the decoder's joined errors into field problems;
+// written is the YAML document decoded, nil for another format.
+func decodeProblems(err error, written *yaml.Node) []FieldError {
 	var out []FieldError
 	var walk func(error)
 	walk = func(err error) {
@@ -1921,7 +1918,7 @@ func decodeProblems(err error) []FieldError {
 				}
 				return
 			}
-			out = append(out, problemFor(e.Name(), inner)...)
+			out = append(out, problemFor(e.Name(), inner, written)...)
 		case interface{ Unwrap() []error }:
 			for _, x := range e.Unwrap() {
 				walk(x)
@@ -1940,7 +1937,7 @@ func decodeProblems(err error) []FieldError {
 	return out
 }
 
-func problemFor(path string, err error) []FieldError {
+func problemFor(path string, err error, written *yaml.Node) []FieldError {
 	shown := path
 	if shown == "" {
 		shown = "(top level)"
@@ -1961,7 +1958,8 @@ func problemFor(path string, err error) []FieldError {
 		if what := dateKey(path); what != "" && ue.Expected.Type().Kind() == reflect.String {
 			return []FieldError{{Path: shown, Value: quotedValue(ue.Value), Msg: "must be " + what + ", not " + describeValue(ue.Value), Hint: dateValueHint(ue.Value)}}
 		}
-		return []FieldError{{Path: shown, Value: quotedValue(ue.Value), Msg: "must be " + describeType(ue.Expected.Type()) + ", not " + describeValue(ue.Value), Hint: typeHint(path, ue.Expected.Type(), ue.Value)}}
+		return []FieldError{{Path: shown, Value: quotedValue(ue.Value), Msg: "must be " + describeType(ue.Expected.Type()) + ", not " + describeValue(ue.Value),
+			Hint: typeHint(path, ue.Expected.Type(), ue.Value, yamlScalarAt(written, shown))}}
 	case errors.As(err, &pe):
 		return []FieldError{{Path: shown, Value: quotedValue(pe.Value), Msg: "must be " + describeType(pe.Expected.Type())}}
 	}
@@ -2446,7 +2444,9 @@ func describeValue(v any) string {
 	return fmt.Sprintf("a %T", v)
 }
 
-func typeHint(path string, t reflect.Type, v any) string {
+// typeHint is the hint of v, decoded at path, which is no value of type t;
+// n is v's scalar node in the YAML document, nil for none or another format.
+func typeHint(path string, t reflect.Type, v any, n *yaml.Node) string {
 	key := fieldKey(path)
 	if t == durationType { // alarm: true, offset: [30m]
 		if b, ok := v.(bool); ok && !b {
@@ -2462,13 +2462,17 @@ func typeHint(path string, t reflect.Type, v any) string {
 		return NumberTextHint(key, x)
 	}
 	if x, ok := v.(string); ok && t.Kind() == reflect.Bool {
+		hint := "write true or false"
 		switch strings.ToLower(strings.TrimSpace(x)) {
 		case "true", "yes", "y", "on":
-			return "write true, without quotes"
+			hint = "write true"
 		case "false", "no", "n", "off":
-			return "write false, without quotes"
+			hint = "write false"
 		}
-		return "write true or false, without quotes"
+		if n != nil && n.Style == 0 {
+			return hint // utc: yes, written without quotes, is text to YAML 1.2
+		}
+		return hint + ", without quotes"
 	}
 	if t.Kind() == reflect.String {
 		if _, ok := v.(string); !ok {

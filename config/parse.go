@@ -1696,6 +1696,7 @@ func (c *Config) ApplyDefaults() {
 // valueError is a decoding failure that knows the offending value.
 type valueError struct {
 	Value, Msg, Hint string
+	number           bool // Value is one number, given where a list belongs
 }
 
 func (e *valueError) Error() string {
@@ -1858,7 +1859,7 @@ func listTypeError(to reflect.Type, data any) error {
 		}
 		hint = "write it [" + strings.Join(quoted, ", ") + "]"
 	}
-	return &valueError{Value: value, Msg: "must be a list, not " + what, Hint: hint}
+	return &valueError{Value: value, Msg: "must be a list, not " + what, Hint: hint, number: isNumber(data)}
 }
 
 // spacedItems splits text without commas at its spaces when it is items
@@ -1948,7 +1949,7 @@ func problemFor(path string, err error, written *yaml.Node) []FieldError {
 	switch {
 	case errors.As(err, &ve):
 		hint := ve.Hint
-		if strings.HasPrefix(ve.Msg, "must be a list, not a number") {
+		if ve.number {
 			if h := namesListHint(fieldKey(path), ve.Value); h != "" {
 				hint = h // "write it [\"6\"]" would lead to "6: not a month"
 			}
@@ -2421,6 +2422,9 @@ func describeType(t reflect.Type) string {
 }
 
 func describeValue(v any) string {
+	if isNumber(v) {
+		return "a number"
+	}
 	switch v.(type) {
 	case nil:
 		return "empty"
@@ -2428,8 +2432,6 @@ func describeValue(v any) string {
 		return "text"
 	case bool:
 		return "true/false"
-	case int, int64, uint64, int32, float64, float32:
-		return "a number"
 	case []any:
 		return "a list"
 	case map[string]any, map[any]any:
@@ -2442,6 +2444,15 @@ func describeValue(v any) string {
 		return "a date and time"
 	}
 	return fmt.Sprintf("a %T", v)
+}
+
+// isNumber reports whether v, a decoded value, is a number.
+func isNumber(v any) bool {
+	switch v.(type) {
+	case int, int64, uint64, int32, float64, float32:
+		return true
+	}
+	return false
 }
 
 // typeHint is the hint of v, decoded at path, which is no value of type t;

@@ -187,9 +187,11 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		if format == "yaml" {
 			written = yamlDocument(data)
 		}
-		problems = decodeProblems(err, written)
+		decoded := decodeProblems(err, written)
 		settings := v.AllSettings() // built afresh by each call: once for all problems
-		for i := range problems {
+		problems = make([]FieldError, len(decoded))
+		for i, d := range decoded {
+			problems[i] = d.FieldError
 			if problems[i].Msg == "unknown key" {
 				if h := kindParamHint(settings, problems[i].Path, format); h != "" {
 					problems[i].Hint = h // target: 16h beside kind: lighting
@@ -197,13 +199,13 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 					problems[i].Hint = tomlTableHint(settings, problems[i].Path, problems[i].Value, problems[i].Hint)
 				}
 			}
-			if format == "toml" && strings.HasSuffix(problems[i].Msg, "not a number") {
+			if format == "toml" && d.given == valueNumber {
 				if w := tomlNumberAt(data, places, problems[i].Path); w != "" {
 					problems[i].Value = w // start = 17.30 as written, not 17.3
 				}
 			}
 			n := yamlScalarAt(written, problems[i].Path)
-			if n != nil && strings.HasSuffix(problems[i].Msg, "not a number") &&
+			if n != nil && d.given == valueNumber &&
 				(n.Tag == "!!int" || n.Tag == "!!float") && n.Style == 0 && n.Value != problems[i].Value {
 				problems[i].Value = n.Value // 1e3 as written, not the 1000 it is
 			}
@@ -213,7 +215,7 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 					problems[i].Hint = listHint(format, problems[i].Path)
 				}
 				if key, value, ok := yamlEquals(problems[i].Value); ok && format == "yaml" && problems[i].Hint == "" &&
-					strings.HasSuffix(problems[i].Msg, "not text") && !strings.Contains(value, "=") {
+					d.given == valueText && !strings.Contains(value, "=") {
 					// "service:" and "listen = ':8080'" on the line below it: one text
 					problems[i].Hint = fmt.Sprintf("YAML writes a key with a colon, not =: %s: %s", key, value)
 				}
@@ -1696,7 +1698,8 @@ func (c *Config) ApplyDefaults() {
 // valueError is a decoding failure that knows the offending value.
 type valueError struct {
 	Value, Msg, Hint string
-	number           bool // Value is one number, given where a list belongs
+	given            string // decodeProblem's
+	notList          bool   // given where a list belongs (listTypeError)
 }
 
 func (e *valueError) Error() string {
@@ -1859,7 +1862,7 @@ func listTypeError(to reflect.Type, data any) error {
 		}
 		hint = "write it [" + strings.Join(quoted, ", ") + "]"
 	}
-	return &valueError{Value: value, Msg: "must be a list, not " + what, Hint: hint, number: isNumber(data)}
+	return &valueError{Value: value, Msg: "must be a list, not " + what, Hint: hint, given: what, notList: true}
 }
 
 // spacedItems splits text without commas at its spaces when it is items
@@ -1890,7 +1893,8 @@ func scalarTypeError(to reflect.Type, data any, hint string) error {
 	if t, ok := data.(time.Time); ok {
 		value = t.Format(time.DateOnly)
 	}
-	return &valueError{Value: value, Msg: "must be " + describeType(to) + ", not " + describeValue(data), Hint: hint}
+	given := describeValue(data)
+	return &valueError{Value: value, Msg: "must be " + describeType(to) + ", not " + given, Hint: hint, given: given}
 }
 
 func kindValueError(err error) error {
@@ -1904,10 +1908,19 @@ func kindValueError(err error) error {
 	return err
 }
 
+// decodeProblem is a problem of the decoding: given words the value it
+// refuses where a value of another type belongs, as its message ends
+// ("a number", "text": describeValue's or kindWord's words); "" for another
+// problem.
+type decodeProblem struct {
+	FieldError
+	given string
+}
+
 // decodeProblems turns the decoder's joined errors into field problems;
 // written is the YAML document decoded, nil for another format.
-func decodeProblems(err error, written *yaml.Node) []FieldError {
-	var out []FieldError
+func decodeProblems(err error, written *yaml.Node) []decodeProblem {
+	var out []decodeProblem
 	var walk func(error)
 	walk = func(err error) {
 		switch e := err.(type) {
@@ -1929,16 +1942,16 @@ func decodeProblems(err error, written *yaml.Node) []FieldError {
 				walk(x)
 				return
 			}
-			out = append(out, FieldError{Path: "(file)", Msg: oneLine(err.Error())})
+			out = append(out, decodeProblem{FieldError: FieldError{Path: "(file)", Msg: oneLine(err.Error())}})
 		default:
-			out = append(out, FieldError{Path: "(file)", Msg: oneLine(err.Error())})
+			out = append(out, decodeProblem{FieldError: FieldError{Path: "(file)", Msg: oneLine(err.Error())}})
 		}
 	}
 	walk(err)
 	return out
 }
 
-func problemFor(path string, err error, written *yaml.Node) []FieldError {
+func problemFor(path string, err error, written *yaml.Node) []decodeProblem {
 	shown := path
 	if shown == "" {
 		shown = "(top level)"
@@ -1949,30 +1962,33 @@ func problemFor(path string, err error, written *yaml.Node) []FieldError {
 	switch {
 	case errors.As(err, &ve):
 		hint := ve.Hint
-		if ve.number {
+		if ve.notList && ve.given == valueNumber {
 			if h := namesListHint(fieldKey(path), ve.Value); h != "" {
 				hint = h // "write it [\"6\"]" would lead to "6: not a month"
 			}
 		}
-		return []FieldError{{Path: shown, Value: ve.Value, Msg: ve.Msg, Hint: hint}}
+		return []decodeProblem{{FieldError{Path: shown, Value: ve.Value, Msg: ve.Msg, Hint: hint}, ve.given}}
 	case errors.As(err, &ue):
+		given := describeValue(ue.Value)
 		if what := dateKey(path); what != "" && ue.Expected.Type().Kind() == reflect.String {
-			return []FieldError{{Path: shown, Value: quotedValue(ue.Value), Msg: "must be " + what + ", not " + describeValue(ue.Value), Hint: dateValueHint(ue.Value)}}
+			return []decodeProblem{{FieldError{Path: shown, Value: quotedValue(ue.Value), Msg: "must be " + what + ", not " + given, Hint: dateValueHint(ue.Value)}, given}}
 		}
-		return []FieldError{{Path: shown, Value: quotedValue(ue.Value), Msg: "must be " + describeType(ue.Expected.Type()) + ", not " + describeValue(ue.Value),
-			Hint: typeHint(path, ue.Expected.Type(), ue.Value, yamlScalarAt(written, shown))}}
+		return []decodeProblem{{FieldError{Path: shown, Value: quotedValue(ue.Value), Msg: "must be " + describeType(ue.Expected.Type()) + ", not " + given,
+			Hint: typeHint(path, ue.Expected.Type(), ue.Value, yamlScalarAt(written, shown))}, given}}
 	case errors.As(err, &pe):
-		return []FieldError{{Path: shown, Value: quotedValue(pe.Value), Msg: "must be " + describeType(pe.Expected.Type())}}
+		return []decodeProblem{{FieldError: FieldError{Path: shown, Value: quotedValue(pe.Value), Msg: "must be " + describeType(pe.Expected.Type())}}}
 	}
 	msg := err.Error()
 	switch {
 	case strings.HasPrefix(msg, "expected a map or struct, got "):
-		return []FieldError{{Path: shown, Msg: "must be a mapping of keys, not " + kindWord(strings.Trim(strings.TrimPrefix(msg, "expected a map or struct, got "), `"`))}}
+		given := kindWord(strings.Trim(strings.TrimPrefix(msg, "expected a map or struct, got "), `"`))
+		return []decodeProblem{{FieldError{Path: shown, Msg: "must be a mapping of keys, not " + given}, given}}
 	case strings.HasPrefix(msg, "source data must be an array or slice, got "):
-		return []FieldError{{Path: shown, Msg: "must be a list, not " + kindWord(strings.TrimPrefix(msg, "source data must be an array or slice, got "))}}
+		given := kindWord(strings.TrimPrefix(msg, "source data must be an array or slice, got "))
+		return []decodeProblem{{FieldError{Path: shown, Msg: "must be a list, not " + given}, given}}
 	}
 	if rest, ok := strings.CutPrefix(msg, "has invalid keys: "); ok {
-		var out []FieldError
+		var out []decodeProblem
 		keys := keysAt(path)
 		for _, key := range strings.Split(rest, ", ") {
 			shownKey := key
@@ -1991,11 +2007,11 @@ func problemFor(path string, err error, written *yaml.Node) []FieldError {
 					fe.Hint = keyElsewhere(key) + "known keys here: " + strings.Join(keys, ", ")
 				}
 			}
-			out = append(out, fe)
+			out = append(out, decodeProblem{FieldError: fe})
 		}
 		return out
 	}
-	return []FieldError{{Path: shown, Msg: oneLine(msg)}}
+	return []decodeProblem{{FieldError: FieldError{Path: shown, Msg: oneLine(msg)}}}
 }
 
 // kindParamHint is the hint of an unknown key at path of a kinds entry
@@ -2421,15 +2437,22 @@ func describeType(t reflect.Type) string {
 	return t.String()
 }
 
+// The words of a value given where a value of another type belongs
+// (describeValue's, kindWord's) that a problem's reading looks for.
+const (
+	valueNumber = "a number"
+	valueText   = "text"
+)
+
 func describeValue(v any) string {
 	if isNumber(v) {
-		return "a number"
+		return valueNumber
 	}
 	switch v.(type) {
 	case nil:
 		return "empty"
 	case string:
-		return "text"
+		return valueText
 	case bool:
 		return "true/false"
 	case []any:
@@ -2730,9 +2753,9 @@ func dateValueHint(v any) string {
 func kindWord(k string) string {
 	switch k {
 	case "int", "int64", "uint64", "float64", "float32":
-		return "a number"
+		return valueNumber
 	case "string":
-		return "text"
+		return valueText
 	case "bool":
 		return "true/false"
 	case "slice", "array":

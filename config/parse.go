@@ -296,8 +296,8 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		}
 	}
 	lines := fieldLines{places: places}
-	for i := range problems {
-		if _, env := fromEnv[problems[i].Path]; !env && !strings.HasPrefix(problems[i].Msg, "duplicate key:") { // a duplicate names its lines
+	for i := len(dups); i < len(problems); i++ { // the duplicates come first, and name their lines
+		if _, env := fromEnv[problems[i].Path]; !env {
 			problems[i].Line = lines.of(problems[i].Path)
 		}
 	}

@@ -192,7 +192,7 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 		problems = make([]FieldError, len(decoded))
 		for i, d := range decoded {
 			problems[i] = d.FieldError
-			if problems[i].Msg == "unknown key" {
+			if problems[i].Msg == msgUnknownKey {
 				if h := kindParamHint(settings, problems[i].Path, format); h != "" {
 					problems[i].Hint = h // target: 16h beside kind: lighting
 				} else if format == "toml" {
@@ -235,13 +235,13 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 	for i := range c.Sites {
 		for j, key := range [2]string{"latitude", "longitude"} {
 			if i < len(located) && !located[i][j] {
-				problems = append(problems, FieldError{Path: fmt.Sprintf("sites[%d].%s", i, key), Msg: "is required",
+				problems = append(problems, FieldError{Path: fmt.Sprintf("sites[%d].%s", i, key), Msg: msgRequired,
 					Hint: coordinateText[key]})
 			}
 		}
 	}
 	for i := range problems {
-		if problems[i].Msg != "unknown time zone" {
+		if problems[i].Msg != msgUnknownZone {
 			continue
 		}
 		site, key, _ := strings.Cut(problems[i].Path, ".")
@@ -1618,7 +1618,7 @@ func applyEnv(c *Config, env LookupEnv) (map[string]string, []FieldError) {
 			if err := z.UnmarshalText([]byte(val)); err != nil {
 				var ze *ZoneError
 				errors.As(err, &ze)
-				problems = append(problems, FieldError{Path: e.path, Value: val, Msg: "unknown time zone", Hint: ze.Hint})
+				problems = append(problems, FieldError{Path: e.path, Value: val, Msg: msgUnknownZone, Hint: ze.Hint})
 				continue
 			}
 			c.Service.RefreshZone = z
@@ -1754,7 +1754,7 @@ func decodeHook() mapstructure.DecodeHookFunc {
 				if err := z.UnmarshalText([]byte(s)); err != nil {
 					var ze *ZoneError
 					errors.As(err, &ze)
-					return nil, &valueError{Value: s, Msg: "unknown time zone", Hint: ze.Hint}
+					return nil, &valueError{Value: s, Msg: msgUnknownZone, Hint: ze.Hint}
 				}
 				return z, nil
 			}
@@ -1999,7 +1999,7 @@ func problemFor(path string, err error, written *yaml.Node) []decodeProblem {
 			if path != "" {
 				p = path + "." + shownKey
 			}
-			fe := FieldError{Path: p, Value: key, Msg: "unknown key"}
+			fe := FieldError{Path: p, Value: key, Msg: msgUnknownKey}
 			if len(keys) > 0 {
 				if near := nearKey(key, keys); near != "" {
 					fe.Hint = didYouMean(near)
@@ -2217,7 +2217,7 @@ func kindsWithColon(problems []FieldError) []FieldError {
 	entries := map[string]string{} // a kinds entry's path: the kind written as its key
 	for _, p := range problems {
 		dot := strings.LastIndexByte(p.Path, '.')
-		if p.Msg != "unknown key" || dot < 0 || !strings.HasSuffix(p.Path[:dot], "]") || fieldKey(p.Path[:dot]) != "kinds" {
+		if p.Msg != msgUnknownKey || dot < 0 || !strings.HasSuffix(p.Path[:dot], "]") || fieldKey(p.Path[:dot]) != "kinds" {
 			continue
 		}
 		if _, err := ParseKind(p.Path[dot+1:]); err == nil {
@@ -2236,10 +2236,10 @@ func kindsWithColon(problems []FieldError) []FieldError {
 		}
 		kind, ok := entries[p.Path[:dot]]
 		switch {
-		case ok && p.Msg == "unknown key" && p.Path[dot+1:] == kind:
+		case ok && p.Msg == msgUnknownKey && p.Path[dot+1:] == kind:
 			out = append(out, FieldError{Path: p.Path[:dot], Value: strconv.Quote(kind + ":"), Msg: "a kind with a colon after it is a mapping without a kind: key",
 				Hint: fmt.Sprintf("write - %s, without the colon", kind), Line: p.Line})
-		case ok && p.Msg == "is required" && p.Path[dot+1:] == "kind":
+		case ok && p.Msg == msgRequired && p.Path[dot+1:] == "kind":
 			// said by the problem above
 		default:
 			out = append(out, p)
@@ -2253,12 +2253,12 @@ func kindsWithColon(problems []FieldError) []FieldError {
 // that problem says what to write, and once it is followed the key is there.
 func writtenAs(p FieldError, problems []FieldError) bool {
 	dot := strings.LastIndexByte(p.Path, '.')
-	if p.Msg != "is required" || dot < 0 {
+	if p.Msg != msgRequired || dot < 0 {
 		return false
 	}
 	parent, key := p.Path[:dot+1], p.Path[dot+1:]
 	return slices.ContainsFunc(problems, func(q FieldError) bool {
-		return q.Msg == "unknown key" && q.Hint == didYouMean(key) && strings.HasPrefix(q.Path, parent) &&
+		return q.Msg == msgUnknownKey && q.Hint == didYouMean(key) && strings.HasPrefix(q.Path, parent) &&
 			!strings.ContainsAny(q.Path[len(parent):], ".[")
 	})
 }

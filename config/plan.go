@@ -1035,12 +1035,12 @@ func (ks *KindSpec) validateOptions(ps *problems, p string) {
 
 func (pl *Plan) validate(ps *problems, p string) {
 	if strings.TrimSpace(pl.Title) == "" {
-		ps.add(p+".title", "", "is required", `e.g. "Public stargazing night"`)
+		ps.add(p+".title", "", msgRequired, `e.g. "Public stargazing night"`)
 	}
 	checkText(ps, p+".title", pl.Title, false, MaxTextLength)
 	checkText(ps, p+".description", pl.Description, true, 4000)
 	if strings.TrimSpace(pl.Date) == "" {
-		ps.add(p+".date", "", "is required", dateRuleHint)
+		ps.add(p+".date", "", msgRequired, dateRuleHint)
 	} else if _, err := ParseDateRule(pl.Date); err != nil {
 		re := err.(*RuleError)
 		ps.add(p+".date", pl.Date, re.Msg, firstNonEmpty(re.Hint, dateRuleHint))

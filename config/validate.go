@@ -42,6 +42,15 @@ var idPattern = sync.OnceValue(func() *regexp.Regexp { return regexp.MustCompile
 // msgNoSuchSite is the problem of a feed's site that no site has as id.
 const msgNoSuchSite = "no site has this id"
 
+// The problems of a key missing, of a key the configuration does not have
+// and of a time zone name the tz database does not know, which the reading
+// of a file looks for among its problems.
+const (
+	msgRequired    = "is required"
+	msgUnknownKey  = "unknown key"
+	msgUnknownZone = "unknown time zone"
+)
+
 // FieldError is one problem of a configuration.
 type FieldError struct {
 	Path  string // e.g. "sites[2].latitude"
@@ -533,7 +542,7 @@ func validID(id string) bool {
 func checkID(ps *problems, path, id, what string) {
 	switch {
 	case id == "":
-		ps.add(path, "", "is required", fmt.Sprintf("a short %s id of lower-case letters, digits and dashes, e.g. \"north-field\"", what))
+		ps.add(path, "", msgRequired, fmt.Sprintf("a short %s id of lower-case letters, digits and dashes, e.g. \"north-field\"", what))
 	case len(id) > MaxIDLength:
 		ps.add(path, id, fmt.Sprintf("longer than %d characters", MaxIDLength), "ids become file names and URLs; keep them short")
 	case !idPattern().MatchString(id):
@@ -688,7 +697,7 @@ func OffsetProblem(k Kind, o time.Duration) (msg, hint string) {
 
 func (ks *KindSpec) validate(ps *problems, p string) {
 	if ks.Kind.IsZero() {
-		ps.add(p+".kind", "", "is required", "one of: "+strings.Join(KindNames, ", "))
+		ps.add(p+".kind", "", msgRequired, "one of: "+strings.Join(KindNames, ", "))
 		return
 	}
 	if _, ok := kindIndex[ks.Kind.Name]; !ok {

@@ -67,6 +67,13 @@ func (e FieldError) Error() string {
 	var b strings.Builder
 	b.WriteString(e.Path)
 	b.WriteString(": ")
+	e.writeProblem(&b)
+	return b.String()
+}
+
+// writeProblem writes e without its path: the value, what is wrong, and the
+// hint in brackets.
+func (e FieldError) writeProblem(b *strings.Builder) {
 	if e.Value != "" && !strings.HasSuffix(e.Path, "."+e.Value) && e.Path != e.Value {
 		// a key's path ends in the key itself: "sites[0].lat: unknown
 		// key", not "sites[0].lat: lat: unknown key"
@@ -79,7 +86,6 @@ func (e FieldError) Error() string {
 		b.WriteString(e.Hint)
 		b.WriteString(")")
 	}
-	return b.String()
 }
 
 // quoteValue shows plain tokens (numbers, ids, zone names) as they are and
@@ -400,8 +406,9 @@ func fahrenheitHint(f float64, written string) string {
 }
 
 func settingError(value, msg, hint string) error {
-	e := FieldError{Value: value, Msg: msg, Hint: hint}.Error()
-	return errors.New(strings.TrimPrefix(e, ": "))
+	var b strings.Builder
+	FieldError{Value: value, Msg: msg, Hint: hint}.writeProblem(&b)
+	return errors.New(b.String())
 }
 
 // portAloneHint is the hint of a port n written alone where host:port

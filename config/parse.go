@@ -211,7 +211,7 @@ func parse(data []byte, format string, env LookupEnv, dir string) (c *Config, er
 			}
 			if problems[i].Value == "" { // a mapping or a list given as one value: name it
 				problems[i].Value = rawAt(settings, problems[i].Path)
-				if problems[i].Msg == "must be a list, not a mapping" && problems[i].Hint == "" {
+				if d.list && d.given == valueMapping && problems[i].Hint == "" {
 					problems[i].Hint = listHint(format, problems[i].Path)
 				}
 				if key, value, ok := yamlEquals(problems[i].Value); ok && format == "yaml" && problems[i].Hint == "" &&
@@ -1699,7 +1699,7 @@ func (c *Config) ApplyDefaults() {
 type valueError struct {
 	Value, Msg, Hint string
 	given            string // decodeProblem's
-	notList          bool   // given where a list belongs (listTypeError)
+	list             bool   // a list belongs there (listTypeError)
 }
 
 func (e *valueError) Error() string {
@@ -1862,7 +1862,7 @@ func listTypeError(to reflect.Type, data any) error {
 		}
 		hint = "write it [" + strings.Join(quoted, ", ") + "]"
 	}
-	return &valueError{Value: value, Msg: "must be a list, not " + what, Hint: hint, given: what, notList: true}
+	return &valueError{Value: value, Msg: "must be a list, not " + what, Hint: hint, given: what, list: true}
 }
 
 // spacedItems splits text without commas at its spaces when it is items
@@ -1910,11 +1910,12 @@ func kindValueError(err error) error {
 
 // decodeProblem is a problem of the decoding: given words the value it
 // refuses where a value of another type belongs, as its message ends
-// ("a number", "text": describeValue's or kindWord's words); "" for another
-// problem.
+// ("a number", "text": describeValue's or kindWord's words), "" for another
+// problem; list says that a list belongs there.
 type decodeProblem struct {
 	FieldError
 	given string
+	list  bool
 }
 
 // decodeProblems turns the decoder's joined errors into field problems;
@@ -1962,19 +1963,19 @@ func problemFor(path string, err error, written *yaml.Node) []decodeProblem {
 	switch {
 	case errors.As(err, &ve):
 		hint := ve.Hint
-		if ve.notList && ve.given == valueNumber {
+		if ve.list && ve.given == valueNumber {
 			if h := namesListHint(fieldKey(path), ve.Value); h != "" {
 				hint = h // "write it [\"6\"]" would lead to "6: not a month"
 			}
 		}
-		return []decodeProblem{{FieldError{Path: shown, Value: ve.Value, Msg: ve.Msg, Hint: hint}, ve.given}}
+		return []decodeProblem{{FieldError{Path: shown, Value: ve.Value, Msg: ve.Msg, Hint: hint}, ve.given, ve.list}}
 	case errors.As(err, &ue):
 		given := describeValue(ue.Value)
 		if what := dateKey(path); what != "" && ue.Expected.Type().Kind() == reflect.String {
-			return []decodeProblem{{FieldError{Path: shown, Value: quotedValue(ue.Value), Msg: "must be " + what + ", not " + given, Hint: dateValueHint(ue.Value)}, given}}
+			return []decodeProblem{{FieldError{Path: shown, Value: quotedValue(ue.Value), Msg: "must be " + what + ", not " + given, Hint: dateValueHint(ue.Value)}, given, false}}
 		}
 		return []decodeProblem{{FieldError{Path: shown, Value: quotedValue(ue.Value), Msg: "must be " + describeType(ue.Expected.Type()) + ", not " + given,
-			Hint: typeHint(path, ue.Expected.Type(), ue.Value, yamlScalarAt(written, shown))}, given}}
+			Hint: typeHint(path, ue.Expected.Type(), ue.Value, yamlScalarAt(written, shown))}, given, ue.Expected.Type().Kind() == reflect.Slice}}
 	case errors.As(err, &pe):
 		return []decodeProblem{{FieldError: FieldError{Path: shown, Value: quotedValue(pe.Value), Msg: "must be " + describeType(pe.Expected.Type())}}}
 	}
@@ -1982,10 +1983,10 @@ func problemFor(path string, err error, written *yaml.Node) []decodeProblem {
 	switch {
 	case strings.HasPrefix(msg, "expected a map or struct, got "):
 		given := kindWord(strings.Trim(strings.TrimPrefix(msg, "expected a map or struct, got "), `"`))
-		return []decodeProblem{{FieldError{Path: shown, Msg: "must be a mapping of keys, not " + given}, given}}
+		return []decodeProblem{{FieldError{Path: shown, Msg: "must be a mapping of keys, not " + given}, given, false}}
 	case strings.HasPrefix(msg, "source data must be an array or slice, got "):
 		given := kindWord(strings.TrimPrefix(msg, "source data must be an array or slice, got "))
-		return []decodeProblem{{FieldError{Path: shown, Msg: "must be a list, not " + given}, given}}
+		return []decodeProblem{{FieldError{Path: shown, Msg: "must be a list, not " + given}, given, true}}
 	}
 	if rest, ok := strings.CutPrefix(msg, "has invalid keys: "); ok {
 		var out []decodeProblem
@@ -2440,8 +2441,9 @@ func describeType(t reflect.Type) string {
 // The words of a value given where a value of another type belongs
 // (describeValue's, kindWord's) that a problem's reading looks for.
 const (
-	valueNumber = "a number"
-	valueText   = "text"
+	valueNumber  = "a number"
+	valueText    = "text"
+	valueMapping = "a mapping"
 )
 
 func describeValue(v any) string {
@@ -2458,7 +2460,7 @@ func describeValue(v any) string {
 	case []any:
 		return "a list"
 	case map[string]any, map[any]any:
-		return "a mapping"
+		return valueMapping
 	case toml.LocalDate:
 		return "a date"
 	case toml.LocalTime:
@@ -2761,7 +2763,7 @@ func kindWord(k string) string {
 	case "slice", "array":
 		return "a list"
 	case "map", "struct":
-		return "a mapping"
+		return valueMapping
 	}
 	return k
 }

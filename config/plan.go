@@ -238,6 +238,7 @@ func ParseDateRule(s string) (DateRule, error) {
 	f := strings.Fields(strings.ToLower(s))
 	r, err := parseDateRule(f)
 	if err != nil {
+		near := "" // the rule suggested
 		if en := englishRule(f); en != "" {
 			// "jeden Samstag", "chaque samedi": the rule in English
 			if f[0] == "every" {
@@ -245,10 +246,10 @@ func ParseDateRule(s string) (DateRule, error) {
 			} else {
 				err.Msg, err.Hint = "not a date rule", fmt.Sprintf("date rules are written in English: write %q", en)
 			}
-		} else if near := nearRule(f); near != "" {
+		} else if near = nearRule(f); near != "" {
 			err.Hint = didYouMean(near)
 		}
-		if err.Msg == "unknown kind" && !nearKindRule(err.Hint) {
+		if _, kerr := ParseKind(near); err.Msg == msgUnknownKind && kerr != nil {
 			// "weekly", "saturdays": a word near no kind is no misspelt
 			// event but a rule written otherwise
 			err.Msg = "not a date rule"
@@ -256,21 +257,6 @@ func ParseDateRule(s string) (DateRule, error) {
 		return DateRule{}, err
 	}
 	return r, nil
-}
-
-// nearKindRule reports whether hint, a date rule's, suggests an event kind
-// ("did you mean "full-moon"?"), which makes the rule a misspelt kind.
-func nearKindRule(hint string) bool {
-	near, ok := strings.CutPrefix(hint, "did you mean ")
-	if !ok {
-		return false
-	}
-	near, err := strconv.Unquote(strings.TrimSuffix(near, "?"))
-	if err != nil {
-		return false
-	}
-	_, kerr := ParseKind(near)
-	return kerr == nil
 }
 
 // everyWords are the words for "every" before a day in German, French,

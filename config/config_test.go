@@ -1211,3 +1211,24 @@ func TestMaxFeedBytesZeroIsTheDefault(t *testing.T) {
 	}
 	t.Error("docs/configuration.md has no row for max_feed_bytes")
 }
+
+// A number written with separators between its thousands is told the
+// number to write, and an elevation in feet its metres, to the metre: the
+// international foot is 0.3048 m exactly (NIST SP 811, appendix B), so
+// 4400 ft is 1341.12 m. A decimal comma in a coordinate keeps its own hint.
+func TestNumberWrittenOtherwise(t *testing.T) {
+	for _, tc := range []struct{ key, written, want string }{
+		{"elevation", "1,340", "write the number without separators: 1340"},
+		{"elevation", "1 340", "write the number without separators: 1340"},
+		{"pressure_hpa", "1\u202f013", "write the number without separators: 1013"},
+		{"max_feed_bytes", "1,000,000", "write the number without separators: 1000000"},
+		{"elevation", "4400ft", "metres above sea level, not feet: write 1341 for 4400 ft"},
+		{"elevation", "4400 feet", "metres above sea level, not feet: write 1341 for 4400 ft"},
+		{"elevation", "1340m", "write the number alone, without the unit: 1340"},
+		{"latitude", "-43,95", "write -43.95: decimal degrees, north positive, south negative"},
+	} {
+		if got := NumberTextHint(tc.key, tc.written); got != tc.want {
+			t.Errorf("%s %q: hint %q, want %q", tc.key, tc.written, got, tc.want)
+		}
+	}
+}

@@ -2563,6 +2563,10 @@ func NumberTextHint(key, x string) string {
 	switch {
 	case key == "latitude", key == "longitude":
 		return coordinateHint(key, x)
+	case groupedNumber().MatchString(strings.TrimSpace(x)): // "1,340" m, "1 013" hPa, "1,000,000" bytes
+		return "write the number without separators: " + strings.NewReplacer(",", "", " ", "", "\u00a0", "", "\u202f", "").Replace(strings.TrimSpace(x))
+	case key == "elevation" && err == nil && (unit == "ft" || unit == "feet" || unit == "foot"):
+		return fmt.Sprintf("metres above sea level, not feet: write %.0f for %s ft", f*0.3048, num) // the international foot, 0.3048 m
 	case key == "max_illumination":
 		return IlluminationHint(x)
 	case key == "max_feed_bytes":
@@ -2589,6 +2593,12 @@ func NumberTextHint(key, x string) string {
 	}
 	return numberWords[key]
 }
+
+// groupedNumber is a whole number written with a separator between its
+// thousands ("1,340", "1 013", "1,000,000"; a no-break or thin space too).
+var groupedNumber = sync.OnceValue(func() *regexp.Regexp {
+	return regexp.MustCompile("^[0-9]{1,3}(?:[, \u00a0\u202f][0-9]{3})+$")
+})
 
 // numberAndUnit splits x, a number written with a unit ("120m", "30 %"),
 // into the number as written, num, and its unit in lower case, and reads

@@ -27,6 +27,14 @@ func TestEventsCoordinatesRequired(t *testing.T) {
 	}
 }
 
+// An --elev written with a thousands separator is told the number to write.
+func TestEventsElevationGrouped(t *testing.T) {
+	code, out, errOut := runCLI(t, "events", "--lat", "27.7", "--lon", "85.36", "--tz", "Asia/Kathmandu", "--elev", "1,340", "--kinds", "sunrise")
+	if want := `--elev: "1,340": not a number (write the number without separators: 1340)`; code != exitInput || !strings.Contains(errOut, want) || out != "" {
+		t.Errorf("exit %d, stderr %q, stdout %q; want exit 2 with %q", code, errOut, out, want)
+	}
+}
+
 // A --lon counted east all the way round (183.44 for the Chatham Islands,
 // 176.56°W) is told the longitude to write.
 func TestEventsLongitudeCountedEast(t *testing.T) {

@@ -53,6 +53,7 @@ func TestAdhocBadParameters(t *testing.T) {
 		{"lat=47&tz=UTC&kinds=sunrise", "lon", ""},
 		{"lat=47&lon=180.5&tz=UTC&kinds=sunrise", "lon", `"180.5"`},
 		{"lat=47&lon=-181&tz=UTC&kinds=sunrise", "lon", `"-181"`},
+		{"lat=27.7&lon=85.36&tz=UTC&kinds=sunrise&elev=1,340", "elev", `"1,340": not a decimal number (write the number without separators: 1340)`},
 		// counted east all the way round: the longitude to write (the Chatham
 		// Islands, 176.56°W)
 		{"lat=-43.95&lon=183.44&tz=UTC&kinds=sunrise", "lon", `"183.44": must be within -180..180 (decimal degrees, east positive, west negative: write -176.56 (176.56°W) for 183.44° counted east)`},

@@ -2,6 +2,7 @@ package config
 
 import (
 	"fmt"
+	"math"
 	"regexp"
 	"strconv"
 	"strings"
@@ -27,11 +28,22 @@ func (d *Duration) UnmarshalText(b []byte) error {
 	return nil
 }
 
+// DurationHint says how to write a duration that did not parse, as the
+// configuration's durations are told: an ad-hoc feed's alarm and offsets
+// take their hints from here.
+func DurationHint(s string) string { return durationHint(s) }
+
 // durationHint says how to write a duration that did not parse: the units
 // are h, m and s, so a number of days or weeks ("1d", "2w") is written in
-// hours.
+// hours, and a number alone needs one ("30": "30m" or "30h").
 func durationHint(s string) string {
 	s = strings.TrimSpace(s)
+	if n, err := strconv.ParseFloat(s, 64); err == nil && strings.Trim(s, "+-.0123456789") == "" {
+		if math.Abs(n) > MaxOffset.Hours() { // beyond an offset's 12h: minutes, as for a number unquoted
+			return fmt.Sprintf(`a duration needs a unit: write "%sm" for minutes`, s)
+		}
+		return fmt.Sprintf(`a duration needs a unit: write "%sm" for minutes or "%sh" for hours`, s, s)
+	}
 	num := strings.TrimLeft(strings.TrimRight(s, "dDwW"), "+-")
 	if n, err := strconv.ParseFloat(num, 64); err == nil && len(s) > 0 && strings.ContainsAny(s[len(s)-1:], "dDwW") {
 		hours := n * 24

@@ -213,6 +213,18 @@ func TestDuration(t *testing.T) {
 	if err := d.UnmarshalText([]byte("30")); err == nil || !strings.Contains(err.Error(), `"30"`) {
 		t.Errorf("bare number: %v", err)
 	}
+	// a number alone, as text (an ad-hoc feed's alarm, a quoted offset), is
+	// told its unit as one unquoted is; past an offset's 12 h, minutes only
+	for in, want := range map[string]string{
+		"6":     `a duration needs a unit: write "6m" for minutes or "6h" for hours`,
+		"-2":    `a duration needs a unit: write "-2m" for minutes or "-2h" for hours`,
+		"-30":   `a duration needs a unit: write "-30m" for minutes`,
+		"1hour": `the units are h, m and s: write "1h" for 1hour`,
+	} {
+		if got := DurationHint(in); got != want {
+			t.Errorf("DurationHint(%q) = %q, want %q", in, got, want)
+		}
+	}
 }
 
 func FuzzParseKind(f *testing.F) {

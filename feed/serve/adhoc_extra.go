@@ -60,7 +60,7 @@ func (q *AdhocQuery) parseExtras(get getter, lim *adhocLimits) error {
 	if v, ok := get(ParamAlarm); ok {
 		d, err := time.ParseDuration(strings.TrimSpace(v))
 		if err != nil {
-			return &QueryError{Param: ParamAlarm, Value: v, Msg: `not a duration such as "15m" or "1h"`}
+			return &QueryError{Param: ParamAlarm, Value: v, Msg: "malformed duration (" + config.DurationHint(v) + ")"}
 		}
 		if d < 0 || d > config.MaxAlarm {
 			return &QueryError{Param: ParamAlarm, Value: v, Msg: "must be within 0..168h (the time before each event)"}
@@ -70,7 +70,11 @@ func (q *AdhocQuery) parseExtras(get getter, lim *adhocLimits) error {
 	if v, ok := get(ParamLighting); ok {
 		d, err := time.ParseDuration(strings.TrimSpace(v))
 		if err != nil || d <= 0 || d >= 24*time.Hour {
-			return &QueryError{Param: ParamLighting, Value: v, Msg: `must be a day length between 0 and 24h, e.g. "16h" or "14h30m"`}
+			msg := `must be a day length between 0 and 24h, e.g. "16h" or "14h30m"`
+			if h, err := strconv.ParseFloat(strings.TrimSpace(v), 64); err == nil && h > 0 && h < 24 {
+				msg += fmt.Sprintf(` (did you mean "%sh"?)`, strings.TrimSpace(v)) // lighting=14: hours, as the builder asks
+			}
+			return &QueryError{Param: ParamLighting, Value: v, Msg: msg}
 		}
 		k, err := lim.parseKind(config.KindLighting + ":" + config.ShortDuration(d))
 		if err != nil {

@@ -53,6 +53,12 @@ func TestAdhocBadParameters(t *testing.T) {
 		{"lat=47&tz=UTC&kinds=sunrise", "lon", ""},
 		{"lat=47&lon=180.5&tz=UTC&kinds=sunrise", "lon", `"180.5"`},
 		{"lat=47&lon=-181&tz=UTC&kinds=sunrise", "lon", `"-181"`},
+		// a duration without its unit, or in words: the one to write, as
+		// the configuration says it; a lighting target in hours alone
+		{"lat=-43.95&lon=-176.56&kinds=sunrise&offsets=sunrise:-30", "offsets", `"sunrise:-30": malformed duration "-30" (a duration needs a unit: write "-30m" for minutes)`},
+		{"lat=-43.95&lon=-176.56&kinds=sunrise&alarm=60", "alarm", `"60": malformed duration (a duration needs a unit: write "60m" for minutes`},
+		{"lat=-43.95&lon=-176.56&kinds=sunrise&alarm=1hour", "alarm", `"1hour": malformed duration (the units are h, m and s: write "1h" for 1hour)`},
+		{"lat=-43.95&lon=-176.56&kinds=sunrise&lighting=14", "lighting", `"14": must be a day length between 0 and 24h, e.g. "16h" or "14h30m" (did you mean "14h"?)`},
 		{"lat=27.7&lon=85.36&tz=UTC&kinds=sunrise&elev=1,340", "elev", `"1,340": not a decimal number (write the number without separators: 1340)`},
 		// counted east all the way round: the longitude to write (the Chatham
 		// Islands, 176.56°W)

@@ -330,6 +330,7 @@ func TestValidationErrors(t *testing.T) {
 		{"bad-lamps.yaml", "feeds[0].kinds[0].lamps", "night", "must be evening, morning or both", "", 0},
 		{"bad-natural.yaml", "feeds[0].kinds[0].natural", "nautical", "must be sunrise-sunset or civil", "what counts as natural light", 0},
 		// a value written with a capital or misspelt gets the one it likely means
+		{"bad-natural-twilight.yaml", "feeds[0].kinds[0].natural", "civil-twilight", "must be sunrise-sunset or civil", `did you mean "civil"?`, 0},
 		{"bad-natural-case.yaml", "feeds[0].kinds[0].natural", "Civil", "must be sunrise-sunset or civil", `did you mean "civil"?`, 0},
 		{"bad-lamps-typo.yaml", "feeds[0].kinds[0].lamps", "bothe", "must be evening, morning or both", `did you mean "both"?`, 0},
 		{"bad-oversize-case.yaml", "service.oversize", "Trim", "must be warn, trim or fail", `did you mean "trim"?`, 0},

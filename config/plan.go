@@ -1007,8 +1007,11 @@ func (ks *KindSpec) validateOptions(ps *problems, p string) {
 			nearValue(ks.Lamps, []string{LampsEvening, LampsMorning, LampsBoth}, "when the lamps run: after sunset, before sunrise, or half of each"))
 	}
 	if onlyLighting("natural", ks.Natural) && ks.Natural != NaturalSunriseSunset && ks.Natural != NaturalCivil {
-		ps.add(p+".natural", ks.Natural, "must be sunrise-sunset or civil",
-			nearValue(ks.Natural, []string{NaturalSunriseSunset, NaturalCivil}, "what counts as natural light: the Sun up, or civil twilight too"))
+		hint := nearValue(ks.Natural, []string{NaturalSunriseSunset, NaturalCivil}, "what counts as natural light: the Sun up, or civil twilight too")
+		if w := strings.NewReplacer(" ", "-", "_", "-").Replace(strings.ToLower(strings.TrimSpace(ks.Natural))); w == "civil-twilight" || w == "twilight" {
+			hint = didYouMean(NaturalCivil) // civil twilight counted as light
+		}
+		ps.add(p+".natural", ks.Natural, "must be sunrise-sunset or civil", hint)
 	}
 	for _, c := range []struct{ key, v string }{{"latest_off", ks.LatestOff}, {"earliest_on", ks.EarliestOn}} {
 		if onlyLighting(c.key, c.v) {

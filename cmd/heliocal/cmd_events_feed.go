@@ -180,6 +180,15 @@ func seconds(d time.Duration) *float64 {
 	return roundTo(d.Seconds(), 3)
 }
 
+// endsNextDay says whether end, as shown (to the second), falls on the
+// local date after date (00:00 UTC) in loc: next_day for every entry that
+// has such an end (a lamp period or a dark window past midnight, a plan),
+// the " +1 day" of its title and of the table.
+func endsNextDay(end, date time.Time, loc *time.Location) bool {
+	t := feed.ToSecond(end).In(loc)
+	return time.Date(t.Year(), t.Month(), t.Day(), 0, 0, 0, 0, time.UTC).Equal(date.AddDate(0, 0, 1))
+}
+
 func toJSONEntry(cal *feed.Calendar, e *feed.Entry) jsonEntry {
 	f := e.Facts
 	j := jsonEntry{Kind: e.Kind, Title: e.Title, Date: e.Date.Format(time.DateOnly), AllDay: e.AllDay,
@@ -189,6 +198,7 @@ func toJSONEntry(cal *feed.Calendar, e *feed.Entry) jsonEntry {
 		j.Start = feed.UTCStamp(e.Start)
 		if !e.End.IsZero() {
 			j.End = feed.UTCStamp(e.End)
+			j.NextDay = j.NextDay || endsNextDay(e.End, e.Date, cal.Site.Location)
 		}
 		alarm := cal.Alarm
 		if e.Alarm != nil {

@@ -15,6 +15,7 @@ import (
 	"heliocal/astro"
 	"heliocal/config"
 	"heliocal/feed"
+	"heliocal/internal/stopped"
 )
 
 const defaultKinds = "sunrise,sunset,solar-noon,civil-dawn,civil-dusk"
@@ -94,10 +95,13 @@ bytes as the published feed for the same window).` + exitStatusHelp,
 			if err := checkEventsFlags(o); err != nil {
 				return err
 			}
+			var err error
 			if o.feed != "" && !o.kindsSet {
-				return runEventsFeed(cmd.Context(), g, o)
+				err = runEventsFeed(cmd.Context(), g, o)
+			} else {
+				err = runEvents(cmd.Context(), g, o)
 			}
-			return runEvents(cmd.Context(), g, o)
+			return eventsStopped(cmd.Context(), err)
 		},
 	}
 	f := cmd.Flags()
@@ -295,6 +299,17 @@ func parseKinds(list string) ([]config.Kind, error) {
 		return nil, badInput("--kinds: %q: give at least one kind", list)
 	}
 	return kinds, nil
+}
+
+// eventsStopped is err, or for a listing stopped by SIGINT or SIGTERM (its
+// context cancelled) one line that says so, whatever step the signal came
+// at ("feed \"events\": sunrise: context canceled" told a script nothing):
+// the chunks written before it are on standard output, cut short.
+func eventsStopped(ctx context.Context, err error) error {
+	if !stopped.By(ctx, err) {
+		return err
+	}
+	return fmt.Errorf("events: stopped before the listing was complete: %w; what was written to standard output is cut short", ctx.Err())
 }
 
 func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {

@@ -124,6 +124,9 @@ bytes as the published feed for the same window).` + exitStatusHelp,
 	_ = cmd.RegisterFlagCompletionFunc("site", completeFromConfig(g, siteIDs))
 	_ = cmd.RegisterFlagCompletionFunc("feed", completeFromConfig(g, feedIDs))
 	_ = cmd.RegisterFlagCompletionFunc("tz", completeZones)
+	for _, name := range []string{"from", "to", "lat", "lon", "elev", "pressure", "temperature", "max-illumination"} {
+		_ = cmd.RegisterFlagCompletionFunc(name, cobra.NoFileCompletions) // a date or a number, never a file's name
+	}
 	return cmd
 }
 

@@ -148,6 +148,23 @@ func TestCompletion(t *testing.T) {
 	}
 }
 
+// A date or a number after events' flags is completed with nothing, not
+// with the names of the files in the working directory (cobra's directive
+// 4, ShellCompDirectiveNoFileComp); --horizon, which takes a CSV file,
+// still offers them (directive 0).
+func TestCompletionNoFilesForDatesAndNumbers(t *testing.T) {
+	for flag, want := range map[string]string{"--from": ":4", "--to": ":4", "--lat": ":4", "--lon": ":4", "--elev": ":4",
+		"--pressure": ":4", "--temperature": ":4", "--max-illumination": ":4", "--horizon": ":0"} {
+		code, out, errOut := runCLI(t, "__complete", "events", flag, "")
+		if code != 0 {
+			t.Fatalf("__complete events %s: exit %d: %s", flag, code, errOut)
+		}
+		if got := strings.TrimSpace(out); got != want {
+			t.Errorf("__complete events %s '': %q, want %q", flag, got, want)
+		}
+	}
+}
+
 // events --feed: the site and kinds of a configured feed, with its options.
 func TestEventsFeed(t *testing.T) {
 	code, out, errOut := runCLI(t, "events", "--feed", "cairnmoor-night", "--from", "2027-01-01", "--to", "2027-01-01")

@@ -23,6 +23,7 @@ import (
 	ics "github.com/arran4/golang-ical"
 	"github.com/chromedp/cdproto/emulation"
 	"github.com/chromedp/chromedp"
+	"github.com/chromedp/chromedp/kb"
 
 	"heliocal/config"
 	"heliocal/feed"
@@ -1272,5 +1273,38 @@ func TestBrowserBuilderWithoutScript(t *testing.T) {
 	want := "This builder needs JavaScript, which is off in this browser: it shows no preview and no subscribe links without it. The published calendars below work without it."
 	if shown, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](note)); err != nil || len(shown) != 1 || shown[0] != want {
 		t.Errorf("with JavaScript off, the builder shows %q (%v), want %q", shown, err, want)
+	}
+}
+
+// Every stop of the keyboard in the builder's date field ("Preview from")
+// shows the focus, the calendar button inside it too: on that stop, the
+// last of the field's (month, day, year, button in Chromium), the field lost
+// its outline and nothing on the page showed where the focus was (WCAG 2.1
+// SC 2.4.7).
+func TestBrowserDateFieldFocusShown(t *testing.T) {
+	ts := builderServer(t)
+	ctx := browser(t)
+	if err := chromedp.Do(ctx, chromedp.Navigate(ts.URL+"/"), chromedp.Focus(chromedp.ID("alarm"))); err != nil {
+		t.Fatal(err)
+	}
+	stops := 0
+	for range 8 {
+		if err := chromedp.Do(ctx, chromedp.KeyEvent(kb.Tab)); err != nil {
+			t.Fatal(err)
+		}
+		at, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](`[document.activeElement.id, getComputedStyle(document.getElementById("start")).outlineStyle]`))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if at[0] != "start" {
+			break
+		}
+		stops++
+		if at[1] != "solid" {
+			t.Errorf("stop %d in the date field: its outline is %q, want it shown (solid)", stops, at[1])
+		}
+	}
+	if stops < 2 {
+		t.Errorf("the keyboard stopped %d times in the date field, want its parts and its button", stops)
 	}
 }

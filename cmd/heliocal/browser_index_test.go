@@ -378,3 +378,27 @@ func TestBrowserPhoneChartMonthsApart(t *testing.T) {
 		}
 	}
 }
+
+// On a 375 px and a 412 px phone the links of the published index's feeds
+// ("webcal", "https", or the file's name) are at least 44 by 44 CSS pixels,
+// the target size of WCAG 2.1 SC 2.5.5, each alone on its line in the
+// phone's layout: they were 19 px tall.
+func TestBrowserPublishedIndexTouchTargets(t *testing.T) {
+	ctx := browser(t)
+	out := t.TempDir()
+	if code, _, errOut := runCLI(t, "publish", "--quiet", "--out", out); code != 0 {
+		t.Fatalf("publish: exit %d: %s", code, errOut)
+	}
+	for _, w := range []int64{375, 412} {
+		if err := chromedp.Do(ctx, chromedp.EmulateViewport(w, 800), chromedp.Navigate("file://"+filepath.Join(out, "index.html"))); err != nil {
+			t.Fatal(err)
+		}
+		small, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](smallTargetsOf("main td a")))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(small) > 0 {
+			t.Errorf("index.html at %d px, links under 44 by 44 px: %s", w, strings.Join(small, "; "))
+		}
+	}
+}

@@ -1121,18 +1121,26 @@ func TestBrowserPreviewClockChangeDuringARow(t *testing.T) {
 }
 
 // smallTargets lists the builder's controls shown that a finger may miss:
-// an input, button or button-styled link under 44 by 44 CSS pixels, the
-// target size of WCAG 2.1 SC 2.5.5. A checkbox is left out: its label
-// beside it, the kind's name and explanation, is the larger target.
-const smallTargets = `[...document.querySelectorAll("input, button, a.button")].filter(el => {
+// an input, button, button-styled link or published feed's "Subscribe" link
+// under 44 by 44 CSS pixels, the target size of WCAG 2.1 SC 2.5.5. A
+// checkbox is left out: its label beside it, the kind's name and
+// explanation, is the larger target.
+var smallTargets = smallTargetsOf("input, button, a.button, .feeds a:not(.url)")
+
+// smallTargetsOf is smallTargets for the elements the CSS selector sel
+// picks.
+func smallTargetsOf(sel string) string {
+	return `[...document.querySelectorAll(` + strconv.Quote(sel) + `)].filter(el => {
   if (el.type === "hidden" || el.type === "checkbox") return false;
   const r = el.getBoundingClientRect();
   return r.width > 0 && (r.width < 44 || r.height < 44);
 }).map(el => { const r = el.getBoundingClientRect(); return (el.id || el.textContent.trim()) + " " + Math.round(r.width) + "×" + Math.round(r.height) + " px"; })`
+}
 
 // On a 375 px and a 412 px phone every field of the builder, its shifts'
-// minutes included, and every button is at least 44 px tall and wide: the
-// fields were 40 px tall and the shifts' 32 px.
+// minutes included, every button and each published feed's "Subscribe"
+// link is at least 44 px tall and wide: the fields were 40 px tall, the
+// shifts' 32 px and the links 19 px.
 func TestBrowserTouchTargets(t *testing.T) {
 	ts := builderServer(t)
 	ctx := browser(t)

@@ -248,6 +248,7 @@ func TestValidationErrors(t *testing.T) {
 		// nul.ics is the device NUL on Windows
 		{"bad-feed-id-device.yaml", "feeds[0].id", "nul", "is a device name on Windows, with any extension: nul.ics cannot be created there, nor synced to a Windows computer", `e.g. "nul-feed"`, 0},
 		{"missing-site.yaml", "feeds[0].site", "north-feild", "no site has this id", `did you mean "north-field"?`, 0},
+		{"feed-site-name.yaml", "feeds[0].site", "Kereru Ridge Deer Club", "no site has this id", `that is the name of the site "kereru-ridge": a feed names its site by id`, 0},
 		{"no-sites.yaml", "sites", "", "no sites", "", 2},
 		{"no-kinds.yaml", "feeds[0].kinds", "", "no kinds", "", 0},
 		{"window-too-long.yaml", "feeds[0].days_ahead", "4000", "window of 4030 days (days_back 30 + days_ahead 4000) is over 10 years", "", 0},

@@ -237,7 +237,11 @@ func (c *Config) Validate() error {
 		case f.Site == "":
 			ps.add(p+".site", "", "is required: the id of the site the feed is computed for", siteList(ids))
 		case !ok:
-			ps.add(p+".site", f.Site, msgNoSuchSite, nearValue(f.Site, ids, siteList(ids)))
+			hint := nearValue(f.Site, ids, siteList(ids))
+			if id := siteNamed(c.Sites, f.Site); id != "" { // the site's name written for its id
+				hint = fmt.Sprintf("that is the name of the site %q: a feed names its site by id", id)
+			}
+			ps.add(p+".site", f.Site, msgNoSuchSite, hint)
 		default:
 			for j, ks := range f.Kinds {
 				if (ks.Kind.Name == "sun-hidden" || ks.Kind.Name == "noon-clear") && !c.Sites[siteIDs[f.Site]].skylineGiven() {
@@ -289,6 +293,21 @@ func freeSuggestions(ps problems, list string, ids map[string]int) {
 		}
 		owner[near] = "the one suggested for " + strings.TrimSuffix(p.Path, ".id")
 	}
+}
+
+// siteNamed is the id of the one site whose name is name (spaces around
+// it and case aside), "" when none or several have it or that id is none.
+func siteNamed(sites []Site, name string) string {
+	id := ""
+	for _, s := range sites {
+		if s.Name != "" && strings.EqualFold(strings.TrimSpace(s.Name), strings.TrimSpace(name)) {
+			if id != "" || !validID(s.ID) {
+				return ""
+			}
+			id = s.ID
+		}
+	}
+	return id
 }
 
 func siteList(ids []string) string {

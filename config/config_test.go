@@ -292,6 +292,9 @@ func TestValidationErrors(t *testing.T) {
 		{"unknown-key.yaml", "sites[0].lattitude", "lattitude", "unknown key", `did you mean "latitude"?`, 0},
 		{"unknown-top-key.yaml", "feed", "feed", "unknown key", `did you mean "feeds"?`, 0},
 		// a key of another place is said to be one
+		// another word for a key where that key is written: the key
+		{"key-words.yaml", "feeds[0].name", "name", "unknown key", `did you mean "title"?`, 2},
+		{"key-words.yaml", "feeds[0].plans[0].time", "time", "unknown key", `did you mean "start"?`, 2},
 		{"misplaced-key.yaml", "feeds[0].timezone", "timezone", "unknown key", "timezone is a key of a site; known keys here: id, title,", 0},
 		{"misplaced-alarm.yaml", "sites[0].alarm", "alarm", "unknown key", "alarm is a key of a feed, a kinds entry ({kind: …}) or a plan; known keys here: id, name,", 0},
 		{"bad-bool.yaml", "feeds[0].utc", `"yes"`, "must be true or false", "write true, without quotes", 0},

@@ -2092,7 +2092,23 @@ func nearKey(key string, keys []string) string {
 	if long := shortKeys[strings.ToLower(key)]; slices.Contains(keys, long) {
 		return long
 	}
+	if word := keyWords[strings.ToLower(key)]; slices.Contains(keys, word) {
+		return word
+	}
 	return closest(key, keys)
+}
+
+// keyWords are the keys that other words for them stand for where those
+// keys are written (a plan's "time" is its start, a feed's or a plan's
+// "name" its title, a "reminder" an alarm); unlike shortKeys, no command
+// line flag is named so.
+var keyWords = map[string]string{
+	"time": "start", "begin": "start", "from": "start", "starts": "start",
+	"until": "end", "to": "end", "finish": "end", "ends": "end",
+	"day": "date", "when": "date",
+	"duration": "for", "length": "for",
+	"name":     "title",
+	"reminder": "alarm", "alert": "alarm", "notify": "alarm",
 }
 
 // tomlTableHint is the hint of key, unknown at path of a TOML document

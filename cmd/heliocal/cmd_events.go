@@ -171,11 +171,11 @@ func eventsPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 				return &cfg.Sites[i], nil
 			}
 		}
-		ids := make([]string, len(cfg.Sites))
+		ids, names := make([]string, len(cfg.Sites)), make([]string, len(cfg.Sites))
 		for i, s := range cfg.Sites {
-			ids[i] = s.ID
+			ids[i], names[i] = s.ID, s.Name
 		}
-		return nil, noSuchID("--site", "site", o.site, ids)
+		return nil, noSuchID("--site", "site", o.site, ids, names, "name")
 	}
 	switch {
 	case !o.latGiven && !o.lonGiven:
@@ -246,11 +246,11 @@ func feedPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 	}
 	f, ok := cfg.Feed(o.feed)
 	if !ok {
-		ids := make([]string, len(cfg.Feeds))
+		ids, names := make([]string, len(cfg.Feeds)), make([]string, len(cfg.Feeds))
 		for i, f := range cfg.Feeds {
-			ids[i] = f.ID
+			ids[i], names[i] = f.ID, f.Title
 		}
-		return nil, noSuchID("--feed", "feed", o.feed, ids)
+		return nil, noSuchID("--feed", "feed", o.feed, ids, names, "title")
 	}
 	for _, k := range f.Kinds {
 		if k.Kind.Name != "daily-summary" { // a feed entry made of other kinds, not an event

@@ -191,6 +191,15 @@ func TestEventsFeed(t *testing.T) {
 	if code, _, errOut := runCLI(t, "events", "--site", "cairnmor", "--kinds", "sunrise"); code != exitInput || !strings.Contains(errOut, `--site: "cairnmor": no such site: did you mean "cairnmoor"?`) {
 		t.Errorf("unknown site: exit %d: %s", code, errOut)
 	}
+	// the site's name or the feed's title for its id: the id it names
+	if code, _, errOut := runCLI(t, "events", "--site", "Cairnmoor Hill Public Observatory", "--kinds", "sunrise"); code != exitInput ||
+		!strings.Contains(errOut, `--site: "Cairnmoor Hill Public Observatory": no such site: that is the name of the site "cairnmoor": give its id (configured: `) {
+		t.Errorf("--site by its name: exit %d: %s", code, errOut)
+	}
+	if code, _, errOut := runCLI(t, "events", "--feed", "Cairnmoor Observatory — twilight and dark sky"); code != exitInput ||
+		!strings.Contains(errOut, `--feed: "Cairnmoor Observatory — twilight and dark sky": no such feed: that is the title of the feed "cairnmoor-night": give its id (configured: `) {
+		t.Errorf("--feed by its title: exit %d: %s", code, errOut)
+	}
 	if code, _, errOut := runCLI(t, "events", "--feed", "cairnmoor-night", "--site", "cairnmoor"); code != exitInput || !strings.Contains(errOut, "--feed") {
 		t.Errorf("--feed with --site: exit %d: %s", code, errOut)
 	}

@@ -43,9 +43,23 @@ func badInput(format string, args ...any) error {
 }
 
 // noSuchID refuses the id v of flag (--site, --feed) that no configured
-// what has: it names the one v likely means, as the configuration's own
-// suggestions do, and lists the configured ids.
-func noSuchID(flag, what, v string, ids []string) error {
+// what has: it names the one whose name (a site's name, a feed's title,
+// names[i] for ids[i], called nameWord) v is, else the one v likely means,
+// as the configuration's own suggestions do, and lists the configured ids.
+func noSuchID(flag, what, v string, ids, names []string, nameWord string) error {
+	named := ""
+	for i, n := range names {
+		if n != "" && strings.EqualFold(strings.TrimSpace(n), strings.TrimSpace(v)) {
+			if named != "" {
+				named = ""
+				break
+			}
+			named = ids[i]
+		}
+	}
+	if named != "" {
+		return badInput("%s: %q: no such %s: that is the %s of the %s %q: give its id (configured: %s)", flag, v, what, nameWord, what, named, strings.Join(ids, ", "))
+	}
 	if near := config.Suggest(v, ids); near != "" {
 		return badInput("%s: %q: no such %s: did you mean %q? (configured: %s)", flag, v, what, near, strings.Join(ids, ", "))
 	}

@@ -51,7 +51,7 @@ func (tr *track) azimuth(st *site, sec float64) float64 {
 // Sun rises. The instant must lie within Coverage() (else a *RangeError); an
 // invalid observer gives an *InputError.
 func (e *Ephemeris) SunAzimuth(o Observer, t time.Time) (float64, error) {
-	st, err := e.query(o, t, t)
+	st, err := e.query(&o, t, t)
 	if err != nil {
 		return 0, err
 	}

@@ -162,7 +162,7 @@ func (e *MoonEphemeris) DarkWindows(ctx context.Context, o Observer, loc *time.L
 
 // DarkSkylineWindows is DarkWindows at a site with the skyline sky: the Moon
 // counts as down while its upper limb is behind the skyline in its
-// direction, by the rule of MoonSkylineCrossings (o.Horizon is ignored);
+// direction, by the rule of MoonSkylineCrossings (o.Horizon and o.LevelHorizon are ignored);
 // the Sun's −18° is unchanged (twilight's glow comes from high in the
 // atmosphere, over the hills as well as behind them). A skyline at one
 // altitude everywhere gives exactly DarkWindows with that Horizon.
@@ -171,7 +171,7 @@ func (e *MoonEphemeris) DarkSkylineWindows(ctx context.Context, o Observer, sky 
 		return nil, err
 	}
 	if flat, ok := sky.flat(); ok {
-		o.Horizon = flat
+		o.Horizon, o.LevelHorizon = flat, false
 		sky = nil
 	}
 	return e.darkWindows(ctx, o, sky, loc, first, last, maxFraction)

@@ -46,9 +46,15 @@ type Observer struct {
 	Elevation float64
 	// Horizon is the apparent altitude of the visible skyline in degrees
 	// (hills, buildings), as measured from the site; 0 means a sea or flat
-	// horizon and then Elevation's dip applies; LevelHorizon is a level one
-	// without the dip. See RiseSetAltitude.
+	// horizon and then Elevation's dip applies, unless LevelHorizon is set.
+	// See RiseSetAltitude.
 	Horizon float64
+	// LevelHorizon says that Horizon is exact: no dip of the horizon for
+	// Elevation is added. It matters only for a Horizon of 0, which it
+	// makes a level horizon at 0° (a plateau whose horizon is land at its
+	// own height), taken as any measured Horizon: the refraction at 0°
+	// (34.5′) and no dip. A Horizon other than 0 never takes the dip.
+	LevelHorizon bool
 	// Pressure (hPa) and Temperature (°C) of the air at the site scale the
 	// refraction of rise and set (see RefractionFactor). Pressure 0 means
 	// the standard refraction of almanacs (34′ at the horizon), whatever
@@ -123,9 +129,10 @@ func (o Observer) Validate() error {
 // RiseSetAltitude returns the geometric altitude of the Sun's centre at
 // sunrise and sunset for this observer, in degrees:
 //
-//   - Horizon == 0: SunriseAltitude (−0.8333°) lowered by the dip of the
-//     horizon 1.76′·√Elevation (Dip; Elevation in metres, none when ≤ 0);
-//   - Horizon != 0: the upper limb touches the skyline at apparent altitude
+//   - Horizon == 0 (and not LevelHorizon): SunriseAltitude (−0.8333°)
+//     lowered by the dip of the horizon 1.76′·√Elevation (Dip; Elevation in
+//     metres, none when ≤ 0);
+//   - Horizon != 0, or LevelHorizon: the upper limb touches the skyline at apparent altitude
 //     Horizon, so the centre's geometric altitude is Horizon − R − 16′, R
 //     being the standard refraction at apparent altitude Horizon (Bennett's
 //     formula, Meeus eq. 16.4, 34.5′ at 0°, taken at −1° below −1°). The
@@ -135,7 +142,7 @@ func (o Observer) Validate() error {
 // RefractionFactor.
 func (o Observer) RiseSetAltitude() float64 {
 	f := o.RefractionFactor()
-	if o.Horizon == 0 {
+	if o.Horizon == 0 && !o.LevelHorizon {
 		h := SunriseAltitude
 		if f != 1 {
 			h = -34.0/60*f - 16.0/60
@@ -146,17 +153,10 @@ func (o Observer) RiseSetAltitude() float64 {
 	return o.Horizon - r*f/60 - 16.0/60
 }
 
-// LevelHorizon is the Horizon of a level horizon at 0° that the site gives
-// as its own (a plateau whose horizon is land at its own height), where 0
-// is the flat horizon lowered by the dip: the smallest Horizon above 0, it
-// is taken as any other Horizon, with the refraction at 0° (34.5′) and no
-// dip, and gives the same altitudes as 0° to the last bit.
-const LevelHorizon = math.SmallestNonzeroFloat64
-
 // RaisedHorizon says whether o's horizon is above level: a Horizon above
-// 0°, hills that hide the Sun before it sets, not LevelHorizon (a level
-// horizon at 0°, which a test of Horizon > 0 would take for one).
-func (o Observer) RaisedHorizon() bool { return o.Horizon > LevelHorizon }
+// 0°, hills that hide the Sun before it sets (a level horizon at 0°,
+// LevelHorizon, is not).
+func (o Observer) RaisedHorizon() bool { return o.Horizon > 0 }
 
 // Dip returns the dip of the horizon in degrees for an eye elevation
 // metres above a flat (sea) horizon: 1.76′·√elevation (common practice;
@@ -194,15 +194,15 @@ type cachedSite struct {
 }
 
 // kept returns o's site if it is the one kept, else nil.
-func (c *siteCache) kept(o Observer) *site {
-	if p := c.last.Load(); p != nil && p.o == o {
+func (c *siteCache) kept(o *Observer) *site {
+	if p := c.last.Load(); p != nil && p.o == *o {
 		return p.st
 	}
 	return nil
 }
 
 // site returns o's site, prepared or kept; o must be valid.
-func (c *siteCache) site(o Observer) *site {
+func (c *siteCache) site(o *Observer) *site {
 	if st := c.kept(o); st != nil {
 		return st
 	}
@@ -210,24 +210,25 @@ func (c *siteCache) site(o Observer) *site {
 }
 
 // keep prepares o's site and keeps it; o must be valid.
-func (c *siteCache) keep(o Observer) *site {
-	st := newSite(o)
-	c.last.Store(&cachedSite{o, st})
+func (c *siteCache) keep(o *Observer) *site {
+	st := newSite(*o)
+	c.last.Store(&cachedSite{*o, st})
 	return st
 }
 
 // query is coverage.query with the observer's site kept for the next
 // query. The observer the cache holds was checked before it was stored,
 // so that a caller asking for one instant after another (an azimuth per
-// sunrise) has only the span checked.
-func (e *Ephemeris) query(o Observer, from, to time.Time) (*site, error) {
+// sunrise) has only the span checked. It takes o by pointer: a query per
+// event (SunAzimuth) copies the Observer once less.
+func (e *Ephemeris) query(o *Observer, from, to time.Time) (*site, error) {
 	if st := e.sites.kept(o); st != nil {
 		if err := e.checkSpan(from, to); err != nil {
 			return nil, err
 		}
 		return st, nil
 	}
-	if err := e.check(o, from, to); err != nil {
+	if err := e.check(*o, from, to); err != nil {
 		return nil, err
 	}
 	return e.sites.keep(o), nil
@@ -472,7 +473,7 @@ func (e *Ephemeris) AppendSunCrossings(dst [][]Crossing, o Observer, altitudes [
 	if err := e.checkSpan(from, to); err != nil {
 		return nil, err
 	}
-	st := e.sites.site(o)
+	st := e.sites.site(&o)
 	a, b := unixSeconds(from), unixSeconds(to)
 	sc := crossingScratch.Get().(*scratch)
 	defer crossingScratch.Put(sc)
@@ -535,7 +536,7 @@ type Transit struct {
 // The span must lie within Coverage() (else a *RangeError); an invalid
 // observer gives an *InputError.
 func (e *Ephemeris) SunTransits(o Observer, from, to time.Time) ([]Transit, error) {
-	st, err := e.query(o, from, to)
+	st, err := e.query(&o, from, to)
 	if err != nil {
 		return nil, err
 	}
@@ -545,7 +546,7 @@ func (e *Ephemeris) SunTransits(o Observer, from, to time.Time) ([]Transit, erro
 // AppendSunTransits is SunTransits appending to dst, so that a caller
 // asking span after span reuses one slice.
 func (e *Ephemeris) AppendSunTransits(dst []Transit, o Observer, from, to time.Time) ([]Transit, error) {
-	st, err := e.query(o, from, to)
+	st, err := e.query(&o, from, to)
 	if err != nil {
 		return nil, err
 	}
@@ -556,7 +557,7 @@ func (e *Ephemeris) AppendSunTransits(dst []Transit, o Observer, from, to time.T
 // centre (degrees, no refraction) at t. The instant must lie within
 // Coverage() (else a *RangeError); an invalid observer gives an *InputError.
 func (e *Ephemeris) SunAltitude(o Observer, t time.Time) (float64, error) {
-	st, err := e.query(o, t, t)
+	st, err := e.query(&o, t, t)
 	if err != nil {
 		return 0, err
 	}

@@ -6,7 +6,7 @@ import (
 	"time"
 )
 
-// A horizon the site gives as 0 (LevelHorizon) is a level horizon: the
+// A horizon the site gives as 0 (Horizon 0 with LevelHorizon) is a level horizon: the
 // refraction at 0° (Bennett, Meeus eq. 16.4: 34.48′) and no dip, while an
 // unset one is the flat horizon lowered by the dip, 1.76′·√1150 = 59.7′
 // (common practice). At 31.27° S 149.07° E, 1150 m, on 1 March 2027 (UTC
@@ -17,7 +17,7 @@ import (
 func TestLevelHorizonWithoutDip(t *testing.T) {
 	dipped := Observer{Latitude: -31.27, Longitude: 149.07, Elevation: 1150}
 	level := dipped
-	level.Horizon = LevelHorizon
+	level.LevelHorizon = true
 	if d := Dip(1150) * 60; math.Abs(d-59.68) > 0.01 {
 		t.Errorf("Dip(1150) = %.2f′, want 59.68′", d)
 	}
@@ -73,17 +73,33 @@ func TestLevelHorizonWithoutDip(t *testing.T) {
 	}
 }
 
-// A level horizon written 0 (LevelHorizon) is not a raised one, though its
-// Horizon is above 0: only a Horizon that hides the Sun above the flat
-// horizon is, as 0.5° and 10° do; an unset one (0) and a sea horizon below
-// level (−0.5°) are not.
+// A level horizon written 0 (LevelHorizon) is not a raised one: only a
+// Horizon that hides the Sun above the flat horizon is, as 0.5° and 10° do;
+// an unset one (0) and a sea horizon below level (−0.5°) are not.
 func TestRaisedHorizon(t *testing.T) {
 	for _, tc := range []struct {
-		horizon float64
-		want    bool
-	}{{0, false}, {LevelHorizon, false}, {-0.5, false}, {0.5, true}, {10, true}} {
-		if got := (Observer{Horizon: tc.horizon}).RaisedHorizon(); got != tc.want {
-			t.Errorf("Observer{Horizon: %g}.RaisedHorizon() = %v, want %v", tc.horizon, got, tc.want)
+		o    Observer
+		want bool
+	}{
+		{Observer{}, false}, {Observer{LevelHorizon: true}, false}, {Observer{Horizon: -0.5}, false},
+		{Observer{Horizon: 0.5}, true}, {Observer{Horizon: 10, LevelHorizon: true}, true},
+	} {
+		if got := tc.o.RaisedHorizon(); got != tc.want {
+			t.Errorf("%+v.RaisedHorizon() = %v, want %v", tc.o, got, tc.want)
+		}
+	}
+}
+
+// LevelHorizon adds nothing to a Horizon other than 0, which never takes
+// the dip (Observer.RiseSetAltitude): from 1150 m, a skyline at 2° or at
+// −0.5° gives the same rise altitude with it and without it.
+func TestLevelHorizonOnlyAtZero(t *testing.T) {
+	for _, h := range []float64{2, -0.5} {
+		o := Observer{Elevation: 1150, Horizon: h}
+		level := o
+		level.LevelHorizon = true
+		if a, b := o.RiseSetAltitude(), level.RiseSetAltitude(); a != b {
+			t.Errorf("Horizon %g: rise altitude %v, with LevelHorizon %v", h, a, b)
 		}
 	}
 }

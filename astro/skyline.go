@@ -19,7 +19,8 @@ import (
 // altitude is Observer{Horizon: S}.RiseSetAltitude(): S less the refraction
 // at S (Bennett's formula, Meeus eq. 16.4, scaled for the site's air) less
 // the semidiameter; a point at exactly 0° is a flat sea-level horizon with
-// the site's dip, as the single horizon altitude. So a skyline at one
+// the site's dip, as the single horizon altitude (the observer's Horizon
+// and LevelHorizon are ignored). So a skyline at one
 // altitude everywhere gives exactly the single-altitude results.
 //
 // The search: the threshold lies between the lowest and the highest of the
@@ -117,7 +118,7 @@ func (s Skyline) Altitude(az float64) float64 {
 // threshold returns the geometric altitude (degrees) of the Sun's centre at
 // which its upper limb meets a skyline at apparent altitude h for o.
 func (o Observer) threshold(h float64) float64 {
-	o.Horizon = h
+	o.Horizon, o.LevelHorizon = h, false
 	return o.RiseSetAltitude()
 }
 
@@ -127,7 +128,7 @@ const skylineStep = 30.0
 // SunSkylineCrossings returns every instant in [from, to) at which the
 // Sun's upper limb meets the skyline sky (Rising: it appears above it;
 // Setting: it disappears behind it), sorted, for the observer o (whose
-// Horizon is ignored). With several crossings on one day, the first Rising
+// Horizon and LevelHorizon are ignored). With several crossings on one day, the first Rising
 // is the Sun's first appearance, the last Setting its last disappearance,
 // and the pairs between are the times it is hidden behind the skyline. The
 // span must lie within Coverage().
@@ -139,7 +140,7 @@ func (e *Ephemeris) SunSkylineCrossings(o Observer, sky Skyline, from, to time.T
 	if lo == hi { // one altitude everywhere: the ordinary search
 		return e.SunCrossings(o, lo, from, to)
 	}
-	st, err := e.query(o, from, to)
+	st, err := e.query(&o, from, to)
 	if err != nil {
 		return nil, err
 	}
@@ -273,7 +274,7 @@ func (e *MoonEphemeris) moonSkylineQuery(o Observer, sky Skyline, from, to time.
 		return nil, nil, err
 	}
 	if flat, ok := sky.flat(); ok {
-		o.Horizon = flat
+		o.Horizon, o.LevelHorizon = flat, false
 		cs, err := e.MoonRiseSet(o, from, to)
 		return nil, cs, err
 	}
@@ -393,7 +394,7 @@ func (e *MoonEphemeris) MoonSkylineDays(ctx context.Context, o Observer, sky Sky
 		return nil, err
 	}
 	if flat, ok := sky.flat(); ok {
-		o.Horizon = flat
+		o.Horizon, o.LevelHorizon = flat, false
 		return e.MoonDays(ctx, o, loc, first, last)
 	}
 	return crossingDays(ctx, "MoonSkylineDays", o, loc, first, last,
@@ -438,7 +439,7 @@ func (e *Ephemeris) SunSkylineSpans(o Observer, sky Skyline, from, to time.Time)
 		return nil, err
 	}
 	return spansOver(cs, from, to, func() bool {
-		return e.sunOverSkyline(o, e.sites.site(o), sky, unixSeconds(from))
+		return e.sunOverSkyline(o, e.sites.site(&o), sky, unixSeconds(from))
 	}), nil
 }
 

@@ -96,9 +96,9 @@ type SunTopocentric struct {
 // 190,000 instructions, some 10 µs); for many instants of a span an
 // Ephemeris's SunAltitude and SunAzimuth cost less a query and agree with
 // it within 0.001″. The Observer's Elevation enters the parallax, Pressure
-// and Temperature the refraction; Horizon is not used. It returns a
-// *RangeError outside MinTime..MaxTime and an *InputError for an invalid
-// observer (NaN and infinities included).
+// and Temperature the refraction; Horizon and LevelHorizon are not used. It
+// returns a *RangeError outside MinTime..MaxTime and an *InputError for an
+// invalid observer (NaN and infinities included).
 func SunFrom(o Observer, t time.Time) (SunTopocentric, error) {
 	if err := o.Validate(); err != nil {
 		return SunTopocentric{}, err

@@ -186,10 +186,8 @@ func airOf(s *config.Site) (pressure, temperature float64) {
 
 // PlaceOf is the observer and zone of a configured site.
 func PlaceOf(s *config.Site) Place {
-	o := astro.Observer{Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation, Horizon: s.Horizon}
-	if s.Horizon == 0 && s.OwnHorizon() {
-		o.Horizon = astro.LevelHorizon // horizon: 0 written, without the dip
-	}
+	o := astro.Observer{Latitude: s.Latitude, Longitude: s.Longitude, Elevation: s.Elevation, Horizon: s.Horizon,
+		LevelHorizon: s.Horizon == 0 && s.OwnHorizon()} // horizon: 0 written, without the dip
 	o.Pressure, o.Temperature = airOf(s)
 	pl := Place{Observer: o, Location: s.TimeZone.Location}
 	if len(s.Skyline) > 0 {

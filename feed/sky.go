@@ -1712,9 +1712,7 @@ func (c *collector) upAtNoon(tr astro.Transit) bool {
 // a level 0): a skyline or a raised horizon hides the Sun, it does not set
 // it.
 func flatRiseAltitude(o astro.Observer) float64 {
-	if o.Horizon != astro.LevelHorizon {
-		o.Horizon = 0
-	}
+	o.Horizon = 0
 	return o.RiseSetAltitude()
 }
 

@@ -64,15 +64,15 @@ const (
 type LunarEclipse struct {
 	Type EclipseType // Penumbral, Partial or Total
 	// The contacts (UTC): penumbral P1 and P4, umbral (partial phase) U1
-	// and U4, total phase U2 and U3; zero when they do not happen. Max is
-	// the greatest eclipse.
-	P1, U1, U2, Max, U3, U4, P4 time.Time
+	// and U4, total phase U2 and U3; zero when they do not happen.
+	// Greatest is the greatest eclipse (the name SolarEclipse gives it too).
+	P1, U1, U2, Greatest, U3, U4, P4 time.Time
 	// UmbralMagnitude and PenumbralMagnitude are the fractions of the
-	// Moon's diameter inside the umbra and the penumbra at Max (negative
+	// Moon's diameter inside the umbra and the penumbra at Greatest (negative
 	// umbral magnitude: the Moon misses the umbra by that much).
 	UmbralMagnitude, PenumbralMagnitude float64
 	s                                   *chebSet
-	// the Moon's series (leMoonRA..leGAST) at P1, U1, U2, Max, U3, U4, P4,
+	// the Moon's series (leMoonRA..leGAST) at P1, U1, U2, Greatest, U3, U4, P4,
 	// evaluated once for every site
 	atContact [7][leLocal]float64
 }
@@ -152,7 +152,7 @@ func LunarEclipses(from, to time.Time) ([]*LunarEclipse, error) {
 		if g.d >= g.rp+g.sm || tm < fromSec || tm >= toSec {
 			continue
 		}
-		e.Max = secToTime(tm)
+		e.Greatest = secToTime(tm)
 		e.UmbralMagnitude = (g.ru + g.sm - g.d) / (2 * g.sm)
 		e.PenumbralMagnitude = (g.rp + g.sm - g.d) / (2 * g.sm)
 		pair := func(radius func(lunarAt) float64) (time.Time, time.Time) {
@@ -173,7 +173,7 @@ func LunarEclipses(from, to time.Time) ([]*LunarEclipse, error) {
 		e.P1, e.P4 = pair(func(x lunarAt) float64 { return x.rp + x.sm })
 		e.U1, e.U4 = pair(func(x lunarAt) float64 { return x.ru + x.sm })
 		e.U2, e.U3 = pair(func(x lunarAt) float64 { return x.ru - x.sm })
-		for i, t := range []time.Time{e.P1, e.U1, e.U2, e.Max, e.U3, e.U4, e.P4} {
+		for i, t := range []time.Time{e.P1, e.U1, e.U2, e.Greatest, e.U3, e.U4, e.P4} {
 			if !t.IsZero() {
 				e.s.evalN(unixSeconds(t), v[:], leLocal)
 				copy(e.atContact[i][:], v[:leLocal])
@@ -198,7 +198,8 @@ type LocalLunarEclipse struct {
 	Eclipse *LunarEclipse
 	// The contacts as seen from the site (zero Time when the contact does
 	// not happen); Altitude and Azimuth are the Moon's topocentric ones.
-	P1, U1, U2, Max, U3, U4, P4 Contact
+	// Greatest is the site's circumstances at the greatest eclipse.
+	P1, U1, U2, Greatest, U3, U4, P4 Contact
 	// Horizon lists the moonrises and moonsets between P1 and P4, with the
 	// umbral magnitude at each.
 	Horizon []HorizonEvent
@@ -207,7 +208,7 @@ type LocalLunarEclipse struct {
 // Visible reports whether any part of the eclipse (P1 to P4) happens with
 // the Moon above the site's horizon.
 func (l *LocalLunarEclipse) Visible() bool {
-	return l.P1.Up || l.Max.Up || l.P4.Up || len(l.Horizon) > 0
+	return l.P1.Up || l.Greatest.Up || l.P4.Up || len(l.Horizon) > 0
 }
 
 // Local returns the eclipse's circumstances at the observer's site. The
@@ -237,7 +238,7 @@ func (e *LunarEclipse) Local(o Observer) LocalLunarEclipse {
 		return Contact{Time: t, Altitude: math.Asin(s) * rad2deg, Azimuth: az * rad2deg, Up: s > sinH0}
 	}
 	l := LocalLunarEclipse{Eclipse: e,
-		P1: contact(0, e.P1), U1: contact(1, e.U1), U2: contact(2, e.U2), Max: contact(3, e.Max),
+		P1: contact(0, e.P1), U1: contact(1, e.U1), U2: contact(2, e.U2), Greatest: contact(3, e.Greatest),
 		U3: contact(4, e.U3), U4: contact(5, e.U4), P4: contact(6, e.P4)}
 	var v [leCount]float64
 	hourAngle := func(sec float64) float64 {

@@ -36,6 +36,7 @@ package astro
 // refraction), so an eclipse "at sunrise" agrees with the sunrise event.
 
 import (
+	"fmt"
 	"math"
 	"time"
 )
@@ -77,8 +78,9 @@ const (
 )
 
 // String returns the type in lower case: "partial", "annular", "total",
-// "hybrid" or "penumbral"; "none" for any other value (the Type of a site
-// that sees no phase).
+// "hybrid" or "penumbral"; "none" for the zero value (the Type of a site
+// that sees no phase), and "EclipseType(9)" for any other, as the package's
+// other enumerations write an unknown value.
 func (t EclipseType) String() string {
 	switch t {
 	case Partial:
@@ -91,8 +93,10 @@ func (t EclipseType) String() string {
 		return "hybrid"
 	case Penumbral:
 		return "penumbral"
+	case 0:
+		return "none"
 	}
-	return "none"
+	return fmt.Sprintf("EclipseType(%d)", int(t))
 }
 
 // SolarEclipse is one solar eclipse as seen from the whole Earth, with its

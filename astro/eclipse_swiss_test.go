@@ -124,7 +124,7 @@ func TestEclipsesSwissEphemeris(t *testing.T) {
 			}
 			continue
 		}
-		e := within6h(le, max, func(x *LunarEclipse) time.Time { return x.Max })
+		e := within6h(le, max, func(x *LunarEclipse) time.Time { return x.Greatest })
 		if e == nil {
 			t.Errorf("%s: no such eclipse found", id)
 			continue
@@ -144,11 +144,11 @@ func TestEclipsesSwissEphemeris(t *testing.T) {
 		check(id+" P1", e.P1, ts(r, "c1_or_p1_utc"), penumbral, &lunar)
 		check(id+" U1", e.U1, ts(r, "c2_or_u1_utc"), umbral, &lunar)
 		check(id+" U2", e.U2, ts(r, "total_start_utc"), 10, &lunar)
-		check(id+" max", e.Max, max, 10, &lunar)
+		check(id+" max", e.Greatest, max, 10, &lunar)
 		check(id+" U3", e.U3, ts(r, "total_end_utc"), 10, &lunar)
 		check(id+" U4", e.U4, ts(r, "c3_or_u4_utc"), umbral, &lunar)
 		check(id+" P4", e.P4, ts(r, "c4_or_p4_utc"), penumbral, &lunar)
-		if want := mustFloat(t, r["magnitude"]); l.Max.Up && want > 0 && math.Abs(e.UmbralMagnitude-want) > 0.004 {
+		if want := mustFloat(t, r["magnitude"]); l.Greatest.Up && want > 0 && math.Abs(e.UmbralMagnitude-want) > 0.004 {
 			t.Errorf("%s umbral magnitude %.4f, Swiss Ephemeris %.4f", id, e.UmbralMagnitude, want)
 		}
 	}
@@ -167,7 +167,7 @@ func TestEclipsesSwissEphemeris(t *testing.T) {
 		}
 		for _, e := range le {
 			if l := e.Local(o); l.Visible() {
-				ours["lunar "+e.Max.Format(time.DateOnly)] = upFor(l.P1, l.P4, l.Horizon)
+				ours["lunar "+e.Greatest.Format(time.DateOnly)] = upFor(l.P1, l.P4, l.Horizon)
 			}
 		}
 		theirs := map[string]bool{}

@@ -121,8 +121,8 @@ func TestLunarEclipsesCanon(t *testing.T) {
 		t.Fatalf("%d lunar eclipses in 2025–2026, the canon lists 4 (two total in 2025, a total and a partial in 2026)", len(es))
 	}
 	march := es[0]
-	if march.Type != Total || march.Max.Month() != time.March || march.Max.Day() != 14 {
-		t.Fatalf("first eclipse %s %s, canon: total, 2025-03-14", march.Type, march.Max)
+	if march.Type != Total || march.Greatest.Month() != time.March || march.Greatest.Day() != 14 {
+		t.Fatalf("first eclipse %s %s, canon: total, 2025-03-14", march.Type, march.Greatest)
 	}
 	for _, c := range []struct {
 		name string
@@ -152,8 +152,8 @@ func TestLunarEclipsesCanon(t *testing.T) {
 		{3, Partial, 0.9299, math.NaN(), "2026-08-28"},
 	} {
 		e := es[c.i]
-		if e.Max.Format(time.DateOnly) != c.date || e.Type != c.typ {
-			t.Errorf("eclipse %d: %s %s, canon %s %s", c.i, e.Max.Format(time.DateOnly), e.Type, c.date, c.typ)
+		if e.Greatest.Format(time.DateOnly) != c.date || e.Type != c.typ {
+			t.Errorf("eclipse %d: %s %s, canon %s %s", c.i, e.Greatest.Format(time.DateOnly), e.Type, c.date, c.typ)
 		}
 		if math.Abs(e.UmbralMagnitude-c.umbral) > 0.002 {
 			t.Errorf("%s: umbral magnitude %.4f, canon %.4f", c.date, e.UmbralMagnitude, c.umbral)
@@ -251,7 +251,7 @@ func TestEclipseOutsideFit(t *testing.T) {
 	if l.Visible() || l.Eclipse != &zl || len(l.Horizon) != 0 {
 		t.Errorf("zero LunarEclipse: Local = %+v, want no circumstances", l)
 	}
-	for i, c := range []Contact{l.P1, l.U1, l.U2, l.Max, l.U3, l.U4, l.P4} {
+	for i, c := range []Contact{l.P1, l.U1, l.U2, l.Greatest, l.U3, l.U4, l.P4} {
 		if !c.IsZero() {
 			t.Errorf("zero LunarEclipse: contact %d = %+v, want zero", i, c)
 		}
@@ -286,7 +286,7 @@ func TestEclipseWindowMargin(t *testing.T) {
 		}
 		for _, e := range ls {
 			if a, b := unixSeconds(e.P1)-e.s.a, e.s.b-unixSeconds(e.P4); a < 3600 || b < 3600 {
-				t.Errorf("lunar %s: P1 %.0f s, P4 %.0f s from the window's ends", e.Max, a, b)
+				t.Errorf("lunar %s: P1 %.0f s, P4 %.0f s from the window's ends", e.Greatest, a, b)
 			}
 		}
 		ss, err := SolarEclipses(from, to)
@@ -355,8 +355,8 @@ func TestEclipseContactPlaces(t *testing.T) {
 		}
 		for _, e := range le {
 			l := e.Local(o)
-			for _, c := range []Contact{l.P1, l.U1, l.U2, l.Max, l.U3, l.U4, l.P4} {
-				check("lunar "+e.Max.Format(time.DateOnly), c, moon.MoonAltitude, moon.MoonAzimuth, o)
+			for _, c := range []Contact{l.P1, l.U1, l.U2, l.Greatest, l.U3, l.U4, l.P4} {
+				check("lunar "+e.Greatest.Format(time.DateOnly), c, moon.MoonAltitude, moon.MoonAzimuth, o)
 			}
 		}
 	}

@@ -325,12 +325,12 @@ func ExampleLunarEclipses() {
 	vienna := astro.Observer{Latitude: 48.21, Longitude: 16.37, Elevation: 190}
 	hm := func(t time.Time) string { return t.Truncate(time.Minute).Format("15:04") }
 	for _, e := range eclipses {
-		fmt.Printf("%s %-7s umbral magnitude %.2f, partial %s–%s", e.Max.Truncate(time.Minute).Format("2006-01-02 15:04"), e.Type, e.UmbralMagnitude, hm(e.U1), hm(e.U4))
+		fmt.Printf("%s %-7s umbral magnitude %.2f, partial %s–%s", e.Greatest.Truncate(time.Minute).Format("2006-01-02 15:04"), e.Type, e.UmbralMagnitude, hm(e.U1), hm(e.U4))
 		if !e.U2.IsZero() {
 			fmt.Printf(", total %s–%s", hm(e.U2), hm(e.U3))
 		}
 		l := e.Local(vienna)
-		fmt.Printf("; from Vienna the Moon at %.1f°", l.Max.Altitude)
+		fmt.Printf("; from Vienna the Moon at %.1f°", l.Greatest.Altitude)
 		for _, h := range l.Horizon {
 			fmt.Printf(", %s at %s", map[astro.Direction]string{astro.Rising: "moonrise", astro.Setting: "moonset"}[h.Direction], hm(h.Time))
 		}

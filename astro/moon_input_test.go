@@ -3,6 +3,7 @@ package astro
 import (
 	"context"
 	"errors"
+	"math"
 	"testing"
 	"time"
 )
@@ -80,6 +81,27 @@ func TestPhaseKindString(t *testing.T) {
 	}
 	if NightState(9).String() != "NightState(9)" || Moonlit.String() != "moonlit" {
 		t.Errorf("NightState names")
+	}
+	for k, want := range map[EclipseType]string{0: "none", Partial: "partial", Penumbral: "penumbral", 9: "EclipseType(9)", -1: "EclipseType(-1)"} {
+		if k.String() != want {
+			t.Errorf("EclipseType %d: %q, want %q", int(k), k.String(), want)
+		}
+	}
+}
+
+// TestPhaseKindElongation: the principal phases are the elongations 0°,
+// 90°, 180° and 270° (Meeus, Astronomical Algorithms 2nd ed., ch. 49); a
+// value that is no phase has none (NaN).
+func TestPhaseKindElongation(t *testing.T) {
+	for k, want := range map[PhaseKind]float64{NewMoon: 0, FirstQuarter: 90, FullMoon: 180, LastQuarter: 270} {
+		if got := k.Elongation(); got != want {
+			t.Errorf("%v: elongation %v, want %v", k, got, want)
+		}
+	}
+	for _, k := range []PhaseKind{-1, 4, 7} {
+		if got := k.Elongation(); !math.IsNaN(got) {
+			t.Errorf("PhaseKind(%d).Elongation() = %v, want NaN", int(k), got)
+		}
 	}
 }
 

@@ -47,8 +47,14 @@ func (k PhaseKind) String() string {
 }
 
 // Elongation returns the phase's elongation of the Moon from the Sun in
-// longitude, degrees (0, 90, 180, 270).
-func (k PhaseKind) Elongation() float64 { return 90 * float64(k) }
+// longitude, degrees (0, 90, 180, 270); NaN for a value that is none of
+// the four phases (PhaseKind(7)).
+func (k PhaseKind) Elongation() float64 {
+	if k < NewMoon || k > LastQuarter {
+		return math.NaN()
+	}
+	return 90 * float64(k)
+}
 
 // Phase is one principal phase of the Moon.
 type Phase struct {

@@ -390,7 +390,7 @@ func describeLunar(s *siteInfo, ev Event, x *EclipseFacts) (string, string) {
 		depth = fmt.Sprintf("; penumbral magnitude %.3f: %s of the Moon's diameter is in the faint outer shadow, "+
 			"a slight dimming that is easy to miss", e.PenumbralMagnitude, share(e.PenumbralMagnitude))
 	}
-	line("greatest eclipse", l.Max, depth)
+	line("greatest eclipse", l.Greatest, depth)
 	line("the total eclipse ends", l.U3, "")
 	line("the partial eclipse ends: the Moon leaves the umbra", l.U4, "")
 	line("the Moon leaves the penumbra: the eclipse ends", l.P4, "")
@@ -412,7 +412,7 @@ func describeLunar(s *siteInfo, ev Event, x *EclipseFacts) (string, string) {
 	over, _ := skylineText(s, ev, x, "Moon", "", phase)
 	b.WriteString(over)
 	b.WriteString(lunarMethod)
-	b.WriteString(FutureNote(e.Max))
+	b.WriteString(FutureNote(e.Greatest))
 
 	var title string
 	switch e.Type {

@@ -56,7 +56,7 @@ func eclipseJSON(x *feed.EclipseFacts) *jsonEclipse {
 			Obscuration: round(l.Obscuration), TotalStart: at(l.C2.Time), TotalEnd: at(l.C3.Time)}
 	case x.Lunar != nil:
 		l := x.Lunar.Eclipse
-		j = &jsonEclipse{Max: at(l.Max), Type: l.Type.String(), UmbralMagnitude: round(l.UmbralMagnitude),
+		j = &jsonEclipse{Max: at(l.Greatest), Type: l.Type.String(), UmbralMagnitude: round(l.UmbralMagnitude),
 			PartialStart: at(l.U1), PartialEnd: at(l.U4), TotalStart: at(l.U2), TotalEnd: at(l.U3)}
 	default:
 		return nil
@@ -119,9 +119,9 @@ func eclipseDetails(e *feed.Event, loc *time.Location) []string {
 		horizon(l.Horizon, "Sun")
 	case x.Lunar != nil:
 		l := x.Lunar.Eclipse
-		parts = append(parts, l.Type.String(), fmt.Sprintf("max %s", clock(l.Max, loc)),
+		parts = append(parts, l.Type.String(), fmt.Sprintf("max %s", clock(l.Greatest, loc)),
 			"umbral magnitude "+signed(l.UmbralMagnitude, 3))
-		if !x.Lunar.Max.Up {
+		if !x.Lunar.Greatest.Up {
 			parts = append(parts, "max below the horizon")
 		}
 		horizon(x.Lunar.Horizon, "Moon")

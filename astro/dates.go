@@ -72,7 +72,7 @@ type dateSpan struct {
 
 // maxDates bounds the dates one call can ask for: every date of the
 // supported range, with a margin.
-var maxDates = int(MaxTime.Sub(MinTime).Hours()/24) + 8
+var maxDates = int(maxTime.Sub(minTime).Hours()/24) + 8
 
 // localDays returns the spans of the local dates first..last inclusive
 // (dates read in loc; the clock part is ignored), each running from hour:00
@@ -96,7 +96,7 @@ func localDays(ctx context.Context, what string, loc *time.Location, first, last
 	n := int(d1.Sub(d0).Hours()/24) + 1 // UTC has no clock changes: exact
 	if n > maxDates {
 		return nil, &RangeError{What: what + " dates", Value: fmt.Sprintf("%s..%s", d0.Format(time.DateOnly), d1.Format(time.DateOnly)),
-			Min: MinTime.Format(time.DateOnly), Max: MaxTime.AddDate(0, 0, -1).Format(time.DateOnly)}
+			Min: minTime.Format(time.DateOnly), Max: maxTime.AddDate(0, 0, -1).Format(time.DateOnly)}
 	}
 	out := make([]dateSpan, 0, n)
 	start := wallStart(loc, fy, fm, fd, hour)

@@ -44,19 +44,23 @@ import (
 // in any zone and with the searches' own margins, can be computed.
 // Exported functions return a *RangeError outside the span and its margin.
 
-// MinTime and MaxTime bound the supported span. Where a function's
-// documentation says it returns a *RangeError outside MinTime..MaxTime, it
-// still computes within RangeMargin beyond either end (so that the first and
-// last local dates can be computed in any zone) and refuses what lies
-// further. They are variables only because a time.Time cannot be a
-// constant: the range checks read them, so a program must not assign to
-// them.
+// MinTime returns the first instant this package supports, 1800-01-01
+// 00:00 UTC. MinTime and MaxTime bound the supported span: where a
+// function's documentation says it returns a *RangeError outside
+// MinTime..MaxTime, it still computes within RangeMargin beyond either end
+// (so that the first and last local dates can be computed in any zone) and
+// refuses what lies further. They are functions, as a time.Time cannot be a
+// constant: the range checks read the package's own values, which no
+// program can change.
+func MinTime() time.Time { return minTime }
+
+// MaxTime returns the first instant past the supported range, 2201-01-01
+// 00:00 UTC: the last supported date is 2200-12-31. See MinTime.
+func MaxTime() time.Time { return maxTime }
+
 var (
-	// MinTime is the first instant this package supports.
-	MinTime = time.Date(1800, 1, 1, 0, 0, 0, 0, time.UTC)
-	// MaxTime is the first instant past the supported range (2201-01-01
-	// 00:00 UTC): the last supported date is 2200-12-31.
-	MaxTime = time.Date(2201, 1, 1, 0, 0, 0, 0, time.UTC)
+	minTime = time.Date(1800, 1, 1, 0, 0, 0, 0, time.UTC)
+	maxTime = time.Date(2201, 1, 1, 0, 0, 0, 0, time.UTC)
 )
 
 // RangeMargin is how far beyond MinTime and MaxTime the package still
@@ -65,14 +69,14 @@ var (
 const RangeMargin = 31 * 24 * time.Hour
 
 var (
-	minUnix = float64(MinTime.Unix())
-	maxUnix = float64(MaxTime.Unix())
+	minUnix = float64(minTime.Unix())
+	maxUnix = float64(maxTime.Unix())
 )
 
 // checkTime returns a *RangeError when t is outside MinTime..MaxTime
 // widened by RangeMargin.
 func checkTime(what string, t time.Time) error {
-	if t.Before(MinTime.Add(-RangeMargin)) || !t.Before(MaxTime.Add(RangeMargin)) {
+	if t.Before(minTime.Add(-RangeMargin)) || !t.Before(maxTime.Add(RangeMargin)) {
 		return outOfRange(what, t.UTC().Format(time.RFC3339))
 	}
 	return nil
@@ -342,7 +346,7 @@ func TimeFromJulianEphemerisDay(jde float64) (time.Time, error) {
 	// ΔT is far below a day, so a jde a day beyond the range's Julian days
 	// is out of range whatever it is; checking it here keeps a huge value
 	// from wrapping round in the conversion to a time.Time.
-	if jde < JulianDay(MinTime.Add(-RangeMargin))-1 || jde > JulianDay(MaxTime.Add(RangeMargin))+1 {
+	if jde < JulianDay(minTime.Add(-RangeMargin))-1 || jde > JulianDay(maxTime.Add(RangeMargin))+1 {
 		return time.Time{}, outOfRange("Julian Ephemeris Day", strconv.FormatFloat(jde, 'f', -1, 64))
 	}
 	sec := ttToUnix(jde)

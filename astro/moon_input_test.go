@@ -28,7 +28,7 @@ func TestMoonBadInput(t *testing.T) {
 	}{
 		{"Moon before 1800", func() error { _, err := Moon(early); return err }, ErrOutOfRange,
 			"astro: time 1799-11-30T00:00:00Z outside the supported range 1800-01-01..2200-12-31"},
-		{"MoonIllumination after 2200", func() error { _, err := MoonIllumination(MaxTime.Add(RangeMargin)); return err }, ErrOutOfRange, ""},
+		{"MoonIllumination after 2200", func() error { _, err := MoonIllumination(MaxTime().Add(RangeMargin)); return err }, ErrOutOfRange, ""},
 		{"MoonPhases from before 1800", func() error { _, err := MoonPhases(early, day); return err }, ErrOutOfRange,
 			"astro: moon phases from 1799-11-30T00:00:00Z outside the supported range 1800-01-01..2200-12-31"},
 		{"MoonPhases reversed", func() error { _, err := MoonPhases(day, day.AddDate(0, 0, -1)); return err }, ErrInvalidInput,
@@ -109,8 +109,8 @@ func TestPhaseKindElongation(t *testing.T) {
 // for every Moon function (the searches look a few days beyond their span).
 func TestMoonRangeEnds(t *testing.T) {
 	for _, span := range [][2]time.Time{
-		{MinTime, MinTime.AddDate(0, 1, 0)},
-		{MaxTime.AddDate(0, -1, 0), MaxTime},
+		{MinTime(), MinTime().AddDate(0, 1, 0)},
+		{MaxTime().AddDate(0, -1, 0), MaxTime()},
 	} {
 		ph, err := MoonPhases(span[0], span[1])
 		if err != nil || len(ph) < 3 {

@@ -184,7 +184,7 @@ func MoonPhases(from, to time.Time) ([]Phase, error) {
 
 // checkRangeEnd accepts an exclusive end of a span up to MaxTime itself.
 func checkRangeEnd(what string, t time.Time) error {
-	if t.Equal(MaxTime) {
+	if t.Equal(maxTime) {
 		return nil
 	}
 	return checkTime(what, t)

@@ -45,13 +45,12 @@ func Seasons(year int) ([4]time.Time, error) {
 	return out, nil
 }
 
-// CrossQuarterLongitudes are the Sun's apparent longitudes (degrees) at the
-// cross-quarter instants CrossQuarters returns, in its order: 315° (early
-// February, between the December solstice and the March equinox), 45° (early
-// May), 135° (early August), 225° (early November). It is a copy for
-// reading: CrossQuarters keeps its own, which assigning to this variable
-// does not change.
-var CrossQuarterLongitudes = crossQuarterLongitudes
+// CrossQuarterLongitudes returns the Sun's apparent longitudes (degrees) at
+// the cross-quarter instants CrossQuarters returns, in its order: 315°
+// (early February, between the December solstice and the March equinox),
+// 45° (early May), 135° (early August), 225° (early November). The array is
+// a copy: CrossQuarters keeps its own.
+func CrossQuarterLongitudes() [4]float64 { return crossQuarterLongitudes }
 
 // crossQuarterLongitudes are the longitudes CrossQuarters solves for.
 var crossQuarterLongitudes = [4]float64{315, 45, 135, 225}

@@ -2273,10 +2273,11 @@ func (c *collector) crossQuarters(k config.Kind) error {
 		if err != nil {
 			return err
 		}
+		lons := astro.CrossQuarterLongitudes()
 		for i, t := range q {
 			d := localDate(t, c.p.Location)
 			if c.inRange(d) {
-				part := strconv.FormatFloat(astro.CrossQuarterLongitudes[i], 'f', -1, 64)
+				part := strconv.FormatFloat(lons[i], 'f', -1, 64)
 				c.events = append(c.events, Event{Kind: k, Start: t, Date: d, Part: part})
 			}
 		}

@@ -113,7 +113,7 @@ func checkRange(from, to time.Time) error {
 	if to.Before(from) {
 		return badInput("--to: %s is before --from %s", to.Format(time.DateOnly), from.Format(time.DateOnly))
 	}
-	lo, hi := astro.MinTime, astro.MaxTime.AddDate(0, 0, -1)
+	lo, hi := astro.MinTime(), astro.MaxTime().AddDate(0, 0, -1)
 	if from.Before(lo) || to.After(hi) {
 		return badInput("--from/--to: %s..%s: outside the supported dates %s..%s", from.Format(time.DateOnly),
 			to.Format(time.DateOnly), lo.Format(time.DateOnly), hi.Format(time.DateOnly))

@@ -121,9 +121,17 @@ func TestRefractionScaling(t *testing.T) {
 	if d := hill.Horizon - 16.0/60 - coldHill.RiseSetAltitude() - bennett*cold.RefractionFactor(); math.Abs(d) > 1e-12 {
 		t.Errorf("skyline refraction not scaled: off by %g°", d)
 	}
-	for _, o := range []Observer{{Pressure: 50}, {Pressure: 1013, Temperature: 80}} {
+	for _, o := range []Observer{{Pressure: 50}, {Pressure: 1013, Temperature: 80}, {Pressure: 1013, Temperature: math.NaN()}} {
 		if err := o.Validate(); err == nil {
 			t.Errorf("%+v accepted", o)
+		}
+	}
+	// Pressure 0 is the standard refraction whatever Temperature says: a
+	// temperature that would be refused with a pressure is not looked at.
+	for _, temp := range []float64{math.NaN(), 80, -300} {
+		o := Observer{Temperature: temp}
+		if err := o.Validate(); err != nil || o.RefractionFactor() != 1 {
+			t.Errorf("%+v: %v, refraction factor %v, want accepted and 1", o, err, o.RefractionFactor())
 		}
 	}
 }

@@ -107,7 +107,8 @@ func (e *InputError) Is(target error) bool { return target == ErrInvalidInput }
 
 // Validate checks the observer's fields: latitude within −90..90, longitude
 // within −180..180, elevation within −500..20000 m, horizon within −5..45°,
-// pressure 0 or within 100..1200 hPa, temperature within −90..60 °C.
+// pressure 0 or within 100..1200 hPa and, with a pressure, temperature
+// within −90..60 °C (with Pressure 0 Temperature is not used, nor checked).
 func (o Observer) Validate() error {
 	switch {
 	case !(o.Latitude >= -90 && o.Latitude <= 90):
@@ -120,7 +121,7 @@ func (o Observer) Validate() error {
 		return &InputError{"observer horizon", o.Horizon, "must be within -5..45 degrees"}
 	case !(o.Pressure == 0 || o.Pressure >= 100 && o.Pressure <= 1200):
 		return &InputError{"observer pressure", o.Pressure, "must be 0 (standard refraction) or within 100..1200 hPa"}
-	case !(o.Temperature >= -90 && o.Temperature <= 60):
+	case o.Pressure != 0 && !(o.Temperature >= -90 && o.Temperature <= 60):
 		return &InputError{"observer temperature", o.Temperature, "must be within -90..60 °C"}
 	}
 	return nil

@@ -193,6 +193,14 @@ func TestDarkWindowsBadInput(t *testing.T) {
 	if !errors.Is(err, ErrOutOfRange) {
 		t.Errorf("outside coverage: %v", err)
 	}
+	// an instant outside the ephemeris's own dates is named as such, not as
+	// outside the package's supported range (1800..2200)
+	from, to := me.Coverage()
+	_, err = me.MoonRiseSet(Observer{Latitude: 45}, to, to.Add(time.Hour))
+	if want := "astro: time " + to.Add(time.Hour).Format(time.RFC3339) + " outside this ephemeris's dates " +
+		from.Format(time.RFC3339) + ".." + to.Format(time.RFC3339); err == nil || err.Error() != want {
+		t.Errorf("after the coverage: %v, want %q", err, want)
+	}
 }
 
 // TestEphemerisIllumination: the interpolated illumination equals the

@@ -277,7 +277,7 @@ func (c *coverage) checkSpan(from, to time.Time) error {
 	}
 	for _, t := range [2]time.Time{from, to} {
 		if t.Before(c.from) || t.After(c.to) {
-			return &RangeError{What: "time", Value: t.UTC().Format(time.RFC3339), Min: c.from.Format(time.RFC3339), Max: c.to.Format(time.RFC3339)}
+			return &RangeError{What: "time", Value: t.UTC().Format(time.RFC3339), Min: c.from.Format(time.RFC3339), Max: c.to.Format(time.RFC3339), Coverage: true}
 		}
 	}
 	return nil

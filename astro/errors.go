@@ -10,15 +10,23 @@ import (
 var ErrOutOfRange = errors.New("astro: out of supported range")
 
 // RangeError reports an input outside the range this package supports
-// (see MinTime and MaxTime). It matches ErrOutOfRange with errors.Is.
+// (see MinTime and MaxTime), or, with Coverage, outside the dates an
+// Ephemeris or a MoonEphemeris covers (its Coverage). It matches
+// ErrOutOfRange with errors.Is.
 type RangeError struct {
 	What  string // the input, e.g. "time", "year", "ephemeris start"
 	Value string // the value given
 	Min   string // lowest supported value
 	Max   string // highest supported value
+	// Coverage says that Min..Max is an ephemeris's own span, not the
+	// package's supported range: "outside this ephemeris's dates".
+	Coverage bool
 }
 
 func (e *RangeError) Error() string {
+	if e.Coverage {
+		return fmt.Sprintf("astro: %s %s outside this ephemeris's dates %s..%s", e.What, e.Value, e.Min, e.Max)
+	}
 	return fmt.Sprintf("astro: %s %s outside the supported range %s..%s", e.What, e.Value, e.Min, e.Max)
 }
 

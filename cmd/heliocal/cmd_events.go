@@ -407,8 +407,14 @@ func jsonGC(getenv func(string) (string, bool)) (restore func()) {
 // The outputs follow feed's one rounding rule: UTC instants to the
 // millisecond (feed.UTCStamp), clock times to the nearest second of that.
 
+// localStamp is t's local time in CSV, rounded to the second, with its
+// offset: to the second where the offset is not whole minutes.
 func localStamp(t time.Time, loc *time.Location) string {
-	return feed.ToSecond(t).In(loc).Format(localCSVTime)
+	l := feed.ToSecond(t).In(loc)
+	if _, off := l.Zone(); off%60 != 0 {
+		return l.Format(localCSVTimeSeconds)
+	}
+	return l.Format(localCSVTime)
 }
 
 func clock(t time.Time, loc *time.Location) string {

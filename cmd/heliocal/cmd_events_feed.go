@@ -21,7 +21,14 @@ import (
 
 // localCSVTime is the layout of local times in CSV: the offset is always
 // numeric ("+00:00" in UTC, never "Z"), so a local time reads as one.
-const localCSVTime = "2006-01-02T15:04:05-07:00"
+// localCSVTimeSeconds is the layout for an offset that is not whole minutes
+// (local mean times before standard time, Europe/Amsterdam's +00:19:32
+// until 1937): the offset with its seconds, so that the time and its offset
+// still give the instant.
+const (
+	localCSVTime        = "2006-01-02T15:04:05-07:00"
+	localCSVTimeSeconds = "2006-01-02T15:04:05-07:00:00"
+)
 
 // runEventsFeed lists the entries of a configured feed exactly as the feed
 // has them: its kinds with their options, its plans, notes and titles.

@@ -605,3 +605,56 @@ feeds:
 		}
 	}
 }
+
+// A local time in CSV and its offset give the instant of start_utc, also
+// where the zone's offset is not whole minutes. The offsets are zdump -v's
+// (tzdata): Europe/Amsterdam gmtoff=4772 (+01:19:32, NST) until 22:40:28 UT
+// on 30 June 1937, then 4800 (+01:20); Africa/Monrovia gmtoff=-2670
+// (−00:44:30, MMT) until 00:44:30 UT on 7 January 1972, then GMT.
+func TestEventsCSVLocalOffsetSeconds(t *testing.T) {
+	for _, c := range []struct {
+		lat, lon, tz, from, to string
+		offsets                []string // of the start_local column, row by row
+	}{
+		{"52.37", "4.9", "Europe/Amsterdam", "1937-06-30", "1937-07-01", []string{"+01:19:32", "+01:20"}},
+		{"6.3", "-10.8", "Africa/Monrovia", "1972-01-06", "1972-01-07", []string{"-00:44:30", "+00:00"}},
+	} {
+		code, out, errOut := runCLI(t, "events", "--lat", c.lat, "--lon", c.lon, "--tz", c.tz, "--from", c.from, "--to", c.to,
+			"--kinds", "sunrise", "--format", "csv")
+		if code != 0 {
+			t.Fatalf("%s: exit %d: %s", c.tz, code, errOut)
+		}
+		rows, err := csv.NewReader(strings.NewReader(out)).ReadAll()
+		if err != nil {
+			t.Fatal(err)
+		}
+		col := map[string]int{}
+		for i, h := range rows[0] {
+			col[h] = i
+		}
+		if len(rows) != 1+len(c.offsets) {
+			t.Fatalf("%s: %d rows, want %d: %s", c.tz, len(rows)-1, len(c.offsets), out)
+		}
+		for i, r := range rows[1:] {
+			local, utc := r[col["start_local"]], r[col["start_utc"]]
+			if !strings.HasSuffix(local, c.offsets[i]) {
+				t.Errorf("%s: start_local %q, want the offset %s", c.tz, local, c.offsets[i])
+			}
+			layout := "2006-01-02T15:04:05-07:00"
+			if strings.Count(c.offsets[i], ":") == 2 {
+				layout += ":00"
+			}
+			l, err := time.Parse(layout, local)
+			if err != nil {
+				t.Fatalf("%s: %v", c.tz, err)
+			}
+			u, err := time.Parse(time.RFC3339, utc)
+			if err != nil {
+				t.Fatalf("%s: %v", c.tz, err)
+			}
+			if d := l.Sub(u.Round(time.Second)); d != 0 {
+				t.Errorf("%s: start_local %q is %v from start_utc %q", c.tz, local, d, utc)
+			}
+		}
+	}
+}

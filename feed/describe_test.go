@@ -791,6 +791,15 @@ func TestDarkWindowAcrossClockChange(t *testing.T) {
 	} {
 		checkClocksSaidOn(t, s, config.KindSpec{Kind: mustKinds(t, "dark-window")[0]}, c.first, c.last, c.night, c.want)
 	}
+	// A change that is not whole minutes says its seconds: zdump -v
+	// Africa/Monrovia gives MMT (−00:44:30) until 00:44:29 UT on 7 January
+	// 1972, then GMT. At 6.3° N, 30° W the night of 6–7 January 1972 is dark
+	// from astronomical dusk at 21:13:21 UT to moonrise at 00:49:12 UT
+	// (PyEphem 4.1.4, to the second).
+	s = site(t, "Monrovia Meridian", 6.3, -30, "Africa/Monrovia")
+	checkClocksSaidOn(t, s, config.KindSpec{Kind: mustKinds(t, "dark-window")[0]}, "1972-01-05", "1972-01-07", "1972-01-06",
+		"Dark sky on the night of 6–7 January 1972 from 20:28:51 MMT to 00:49:12 GMT the next day (Fri 7 Jan; 3 h 36 min). "+
+			"The clocks go forward by 44 min 30 s during it: 00:00 MMT becomes 00:44:30 GMT.")
 }
 
 // checkClocksSaidOn checks that spec's entry of the date day, among those

@@ -384,8 +384,8 @@ func clocksDuring(start, end time.Time, loc *time.Location) string {
 		if !forward {
 			by, summer = -by, ch.At.Add(-time.Second).In(loc).IsDST()
 		}
-		fmt.Fprintf(&b, " The clocks %s during it: %s becomes %s.", ClocksGo(forward, summer, by),
-			was.Format("15:04 MST"), now.Format("15:04 MST"))
+		fmt.Fprintf(&b, " The clocks %s during it: %s %s becomes %s %s.", ClocksGo(forward, summer, by),
+			ChangeClock(was), ZoneLabel(before), ChangeClock(now), ZoneLabel(after))
 	}
 	return b.String()
 }

@@ -1231,6 +1231,17 @@ func ClocksGo(forward, summer bool, by time.Duration) string {
 	return "go " + how + season + " by " + amount(by)
 }
 
+// ChangeClock is the clock t shows at a change of the clocks, in the words
+// that say the change (ClocksGo): "01:00", or "00:44:30" where the change is
+// not whole minutes (Africa/Monrovia's from −00:44:30 to GMT in 1972), so
+// that "00:00 becomes 00:44:30" says the jump.
+func ChangeClock(t time.Time) string {
+	if t.Second() != 0 {
+		return t.Format("15:04:05")
+	}
+	return t.Format("15:04")
+}
+
 // skipped is the span of clock times skipped by the change of offset that
 // moved the time, "00:00–01:00", from the tz database's transition; "" if
 // the zone does not give it.

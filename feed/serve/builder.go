@@ -712,7 +712,7 @@ func clockChange(d time.Time, loc *time.Location) string {
 	for ch := range feed.OffsetChanges(loc, d.Add(-48*time.Hour), d.Add(72*time.Hour)) {
 		tr, before, after := ch.At, ch.Before, ch.After
 		old, now := tr.In(time.FixedZone("", before)), tr.In(loc)
-		was, wasDate := old.Format("15:04"), old
+		was, wasDate := feed.ChangeClock(old), old
 		if was == "00:00" && old.Format(time.DateOnly) != now.Format(time.DateOnly) {
 			was, wasDate = "24:00", old.AddDate(0, 0, -1) // the end of the date before
 		}
@@ -725,7 +725,7 @@ func clockChange(d time.Time, loc *time.Location) string {
 		if !forward {
 			by, summer = -by, tr.Add(-time.Second).In(loc).IsDST()
 		}
-		becomes := now.Format("15:04")
+		becomes := feed.ChangeClock(now)
 		y, m, day := now.Date() // the date before now's, as a civil date: it may not exist in loc
 		if d := wasDate.Format(time.DateOnly); d != row && d != time.Date(y, m, day-1, 0, 0, 0, 0, time.UTC).Format(time.DateOnly) {
 			// the clocks jump over at least one whole date

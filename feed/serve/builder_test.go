@@ -400,6 +400,9 @@ func TestPreviewClockChange(t *testing.T) {
 		{"Australia/Sydney", "2027-04-03", []string{"", "Clocks go back from summer time by 1 h: 03:00 becomes 02:00", ""}},
 		{"Australia/Sydney", "2027-10-02", []string{"", "Clocks go forward for summer time by 1 h: 02:00 becomes 03:00", ""}},
 		{"UTC", "2027-03-13", []string{"", "", ""}},
+		// zdump -v Africa/Monrovia: 23:59:59 MMT (−00:44:30) on 6 January
+		// 1972, then 00:44:30 GMT on the 7th: a change not of whole minutes
+		{"Africa/Monrovia", "1972-01-06", []string{"", "Clocks go forward by 44 min 30 s: 00:00 becomes 00:44:30", ""}},
 		// zdump -v Europe/Zurich: no change from 28 October 2040 to 31
 		// March 2041; Go's ZoneBounds gives 31 December 2040 as a bound
 		// for the whole of that day, which once held the table forever

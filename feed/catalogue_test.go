@@ -1259,3 +1259,28 @@ func TestPhotoperiodPolarNoteTexts(t *testing.T) {
 		}
 	}
 }
+
+// The daily summary of a date on which the clocks change says so, in the
+// words of the served tables' row, since its times carry another offset
+// than the day before's. Lord Howe Island's clocks go back by 30 min on
+// 4 April 2027: Sun Apr 4 01:59:59 +11 is followed by 01:30:00 +1030
+// (`zdump -v -c 2027,2028 Australia/Lord_Howe`); the dates around it say
+// nothing of the clocks.
+func TestSummarySaysClockChange(t *testing.T) {
+	s := site(t, "lord-howe", -31.55, 159.08, "Australia/Lord_Howe")
+	sk := sky(t, "2027-04-03", "2027-04-05")
+	es, err := sk.Entries(context.Background(), s, "f", []config.KindSpec{{Kind: mustKinds(t, "daily-summary")[0]}}, date("2027-04-03"), date("2027-04-05"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	const clocks = "Clocks go back from summer time by 30 min: 02:00 becomes 01:30."
+	if len(es) != 3 {
+		t.Fatalf("%d entries, want 3", len(es))
+	}
+	for _, e := range es {
+		said := strings.Contains(e.Description, clocks)
+		if want := e.Date.Equal(date("2027-04-04")); said != want || (want && !strings.HasSuffix(e.Description, ").\n"+clocks)) {
+			t.Errorf("%s: %q, want the last line %q only on 2027-04-04", e.Date.Format(time.DateOnly), e.Description, clocks)
+		}
+	}
+}

@@ -1716,7 +1716,8 @@ func noEventToday(k config.Kind) (title, row, desc string) {
 }
 
 // describeSummary gives the daily summary of date d: sunrise, sunset, day
-// length and civil twilight, with the polar states spelled out. A sunset
+// length and civil twilight, with the polar states spelled out, and the
+// change of the clocks on d (ClockChange). A sunset
 // after midnight that ends d's day is in evs with its own date; carried
 // says that d's first sunset ends the day before, and dusk is the civil
 // dusk after midnight that ends the twilight of the day before (zero when
@@ -1803,6 +1804,10 @@ func describeSummary(s *siteInfo, d time.Time, length, delta time.Duration, evs 
 		fmt.Fprintf(&b, "%s %s, sunrise to midnight (%s from the day before).", lengthName, hm(length), Change(delta))
 	default:
 		fmt.Fprintf(&b, "%s %s (%s from the day before).", lengthName, hm(length), Change(delta))
+	}
+	if c := ClockChange(d, loc); c != "" {
+		// the times above carry the offsets on both sides of it
+		b.WriteString("\n" + c + ".")
 	}
 	return title, b.String()
 }

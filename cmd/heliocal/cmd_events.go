@@ -681,6 +681,9 @@ func detailsAt(e *feed.Event, loc *time.Location, o astro.Observer) string {
 			break
 		}
 		parts = append(parts, length+feed.Length(e.DayLength, time.Second)+", change "+feed.Change(e.DayChange))
+		if c := feed.ClockChange(e.Date, loc); c != "" {
+			parts = append(parts, feed.Small(c)) // as the feed's summary says it
+		}
 	}
 	if hasAzimuth(*e) {
 		parts = append(parts, fmt.Sprintf("azimuth %.1f° (%s)", e.Azimuth, astro.CompassPoint(e.Azimuth)))

@@ -497,3 +497,19 @@ func TestEventsTableMinusSign(t *testing.T) {
 		t.Errorf("JSON (exit %d, %s):\n%s\nwant altitude_deg -12.3579", code, errOut, out)
 	}
 }
+
+// The table's DETAILS of a daily summary say a change of the clocks on its
+// date as the feed's summary does: Lord Howe Island's clocks go back by
+// 30 min on 4 April 2027, 01:59:59 +11 then 01:30:00 +1030 (`zdump -v -c
+// 2027,2028 Australia/Lord_Howe`).
+func TestEventsTableSummaryClockChange(t *testing.T) {
+	code, out, errOut := runCLI(t, "events", "--lat", "-31.55", "--lon", "159.08", "--tz", "Australia/Lord_Howe",
+		"--from", "2027-04-03", "--to", "2027-04-05", "--kinds", "daily-summary")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	const clocks = ", clocks go back from summer time by 30 min: 02:00 becomes 01:30\n"
+	if strings.Count(out, clocks) != 1 || !strings.Contains(out, "2027-04-04 Sun  all day  daily-summary  day length 11 h 40 min 22 s, change −1 min 54 s"+clocks) {
+		t.Errorf("table:\n%s\nwant %q on 2027-04-04 alone", out, clocks)
+	}
+}

@@ -635,7 +635,7 @@ func days(cal *feed.Calendar, q AdhocQuery) []previewDay {
 	index := map[string]int{}
 	for i := range out {
 		d := q.Start.AddDate(0, 0, i)
-		out[i] = previewDay{Date: d.Format(time.DateOnly), Weekday: d.Format("Mon"), Clocks: clockChange(d, loc), Entries: []previewEntry{}}
+		out[i] = previewDay{Date: d.Format(time.DateOnly), Weekday: d.Format("Mon"), Clocks: feed.ClockChange(d, loc), Entries: []previewEntry{}}
 		index[out[i].Date] = i
 	}
 	for _, e := range cal.Entries {
@@ -691,54 +691,6 @@ func days(cal *feed.Calendar, q AdhocQuery) []previewDay {
 		})
 	}
 	return out
-}
-
-// clockChange says how the clocks of loc change on the local date d (its
-// midnight in UTC, as the rows' dates are), "" when they do not: "Clocks go
-// forward for summer time by 1 h: 00:00 becomes 01:00" (America/Havana,
-// 14 March 2027), "Clocks go back from summer time by 1 h: 24:00 becomes
-// 23:00" (America/Santiago, 3 April 2027). A change belongs to the date
-// the clocks show after it, so a skipped midnight is said on the date that
-// then starts at 01:00; the time it is read at is the clock's before it,
-// 24:00 for the end of the row's own date. A change that jumps over whole
-// dates names the dates on both sides ("24:00 on Thu 29 Dec becomes 00:00
-// on Sat 31 Dec", Pacific/Apia in 2011), and the row of a date it jumps
-// over says that the date is skipped.
-func clockChange(d time.Time, loc *time.Location) string {
-	row := d.Format(time.DateOnly)
-	var said []string
-	// from two days before the date to three after it, as instants: the
-	// date's noon in loc may not exist (the clocks skip the whole date)
-	for ch := range feed.OffsetChanges(loc, d.Add(-48*time.Hour), d.Add(72*time.Hour)) {
-		tr, before, after := ch.At, ch.Before, ch.After
-		old, now := tr.In(time.FixedZone("", before)), tr.In(loc)
-		was, wasDate := feed.ChangeClock(old), old
-		if was == "00:00" && old.Format(time.DateOnly) != now.Format(time.DateOnly) {
-			was, wasDate = "24:00", old.AddDate(0, 0, -1) // the end of the date before
-		}
-		jumpsDates := wasDate.Format(time.DateOnly) < row && row < now.Format(time.DateOnly)
-		if now.Format(time.DateOnly) != row && !jumpsDates {
-			continue // a change of another date
-		}
-		// summer time is the clock's after a change forward, before one back
-		by, forward, summer := time.Duration(after-before)*time.Second, after > before, now.IsDST()
-		if !forward {
-			by, summer = -by, tr.Add(-time.Second).In(loc).IsDST()
-		}
-		becomes := feed.ChangeClock(now)
-		y, m, day := now.Date() // the date before now's, as a civil date: it may not exist in loc
-		if d := wasDate.Format(time.DateOnly); d != row && d != time.Date(y, m, day-1, 0, 0, 0, 0, time.UTC).Format(time.DateOnly) {
-			// the clocks jump over at least one whole date
-			was += " on " + wasDate.Format("Mon 2 Jan")
-			becomes += " on " + now.Format("Mon 2 Jan")
-		}
-		if jumpsDates {
-			said = append(said, "This date is skipped: the clocks "+feed.ClocksGo(forward, summer, by)+", "+was+" becomes "+becomes)
-			continue
-		}
-		said = append(said, "Clocks "+feed.ClocksGo(forward, summer, by)+": "+was+" becomes "+becomes)
-	}
-	return strings.Join(said, "; ")
 }
 
 // clockOn writes the local time t as "15:04", led by its weekday ("Mon

@@ -753,7 +753,8 @@ type lightingText struct {
 	// not reached"
 	reached, notReached string
 	// after the period's length in the description, up to the natural
-	// day's: ").\nNatural day " ("Direct Sun over the skyline " with a
+	// day's: ").\nNatural day " ("Civil dawn to dusk " with natural:
+	// civil, "Direct Sun over the skyline " with a
 	// skyline), and the same for one period round solar noon, centred on
 	// it or moved within the limits
 	open, centred, near string
@@ -803,7 +804,12 @@ func (w *entryWriter) lightingText(spec *config.KindSpec) *lightingText {
 	}
 	target := amount(spec.Kind.DayLength)
 	natural := "Natural day "
-	if spec.Natural != config.NaturalCivil && len(w.site.Skyline) > 0 {
+	switch {
+	case spec.Natural == config.NaturalCivil:
+		// named: not the day length of sunrise to sunset, which the
+		// date's summary and the lamps of natural: sunrise-sunset give
+		natural = "Civil dawn to dusk "
+	case len(w.site.Skyline) > 0:
 		natural = "Direct Sun over the skyline "
 	}
 	lt := &lightingText{key: key, goal: "; target " + target + ".\n",

@@ -1205,7 +1205,7 @@ func (m clockMove) words(dated bool) string {
 			w += "on " + change.Format("Mon 2 Jan 2006") + " "
 		}
 		summer := m.t.IsDST() && !end.In(m.t.Location()).IsDST()
-		return w + "at " + change.Format("15:04 ") + label + " they " + ClocksGo(false, summer, -m.by)
+		return w + "at " + ChangeClock(change) + " " + label + " they " + ClocksGo(false, summer, -m.by)
 	}
 	change := ClocksGo(true, m.t.IsDST(), m.by)
 	day := m.day()
@@ -1346,7 +1346,7 @@ func goBack(start, end time.Time, z *zoneCache) (words string, across bool) {
 	}
 	summer := start.In(z.loc).IsDST() && !change.In(z.loc).IsDST()
 	at := change.In(time.FixedZone(label, int(off))) // the clock before the change
-	return " (on " + at.Format("Mon 2 Jan 2006") + " at " + at.Format("15:04 ") + label + " the clocks " + ClocksGo(false, summer, by) + ")", across
+	return " (on " + at.Format("Mon 2 Jan 2006") + " at " + ChangeClock(at) + " " + label + " the clocks " + ClocksGo(false, summer, by) + ")", across
 }
 
 // appendMoved appends what follows a plan's time shown: " the next day (Sun

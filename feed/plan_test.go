@@ -995,6 +995,20 @@ func TestPlanClockRepeatedSaysSo(t *testing.T) {
 	if want := "From 23:15:00 UTC−03 (the first 23:15, which the clocks show twice: on Sun 4 Apr 2027 at 00:00 UTC−03 they go back from summer time by 1 h) to 23:15:00 UTC−04."; !strings.HasPrefix(es[0].Description, want) {
 		t.Errorf("3 April: %q, want %q", es[0].Description, want)
 	}
+	// A change that is not whole minutes is said to the second: zdump -v
+	// America/New_York gives 12:03:57 LMT (UT − 4:56:02) at 16:59:59 UT on
+	// 18 November 1883, then 12:00:00 EST, so that 12:00:00 to 12:03:58 are
+	// shown twice; "12:01" for 10 min is 16:57:02 to 17:07:02 UT.
+	nyc := site(t, "nyc", 40.71, -74.0, "America/New_York")
+	es = planEntries(t, nyc, "1883-11-18", "1883-11-18", config.Plan{Title: "Noon bell", Date: "every day", Start: "12:01", For: config.Duration(10 * time.Minute)})
+	if want := "From 12:01:00 LMT (the first 12:01, which the clocks show twice: on Sun 18 Nov 1883 at 12:03:58 LMT they go back by 3 min 58 s) to 12:07:02 EST."; len(es) != 1 || !strings.HasPrefix(es[0].Description, want) ||
+		!es[0].Start.Equal(time.Date(1883, 11, 18, 16, 57, 2, 0, time.UTC)) {
+		t.Errorf("18 November 1883: %v, want %q from 16:57:02 UT", es, want)
+	}
+	es = planEntries(t, nyc, "1883-11-18", "1883-11-18", config.Plan{Title: "Across", Date: "every day", Start: "11:50", End: "12:30"})
+	if want := "From 11:50:00 LMT to 12:30:00 EST. The clocks go back by 3 min 58 s during it: 12:03:58 LMT becomes 12:00 EST."; len(es) != 1 || !strings.HasPrefix(es[0].Description, want) {
+		t.Errorf("18 November 1883, across: %v, want %q", es, want)
+	}
 	for _, c := range []struct {
 		pl   config.Plan
 		from string

@@ -295,6 +295,7 @@ func checkConfig(ctx context.Context, cfg *config.Config, src config.Source, now
 			siteHorizon: horizonOf(&s), TimeZone: s.TimeZone.Name(), TimeZoneInferred: s.ZoneInferred})
 	}
 	zoneLines := zoneNotes(cfg, now)
+	r.Warnings = append(r.Warnings, zoneWarnings(cfg, now)...)
 	limit := cfg.Service.MaxFeedBytes
 	r.limit = limit
 	for i, s := range srcs {

@@ -269,6 +269,32 @@ func aboveHorizon(s *siteInfo, body string, hs []astro.HorizonEvent, up bool, st
 	return string(append(appendHM(b, ToSecond(end).Sub(ToSecond(start))), ".\n"...))
 }
 
+// horizonPart is the bracket of an eclipse's title that says which part of
+// it the site sees when the body ("Sun", "Moon") rises or sets during it
+// (hs), rise and set naming its rising and setting: " (seen from
+// moonrise)", " (seen until sunset)", " (the Sun rises and sets during it)"
+// when it does both (near the polar circles); "" when it does neither. The
+// entry spans the whole eclipse; its description says when (aboveHorizon).
+func horizonPart(body string, hs []astro.HorizonEvent, rise, set string) string {
+	rises, sets := false, false
+	for _, h := range hs {
+		if h.Direction == astro.Rising {
+			rises = true
+		} else {
+			sets = true
+		}
+	}
+	switch {
+	case rises && sets:
+		return " (the " + body + " rises and sets during it)"
+	case rises:
+		return " (seen from " + rise + ")"
+	case sets:
+		return " (seen until " + set + ")"
+	}
+	return ""
+}
+
 // placeAt is bodyPlace, with "behind the skyline" for a body above the
 // horizon but behind the site's skyline.
 func placeAt(x *EclipseFacts, body string, c astro.Contact) string {
@@ -344,14 +370,8 @@ func describeSolar(s *siteInfo, e Event, x *EclipseFacts) (string, string) {
 	if l.Type != astro.Partial && (!l.C2.Up || !l.C3.Up) {
 		title = fmt.Sprintf("%s solar eclipse at the horizon", Capital(typ))
 	}
-	switch {
-	case x.Skyline: // the skyline's suffix instead
-	// the entry spans the whole eclipse; the title says which part of it
-	// the site sees, the description when (aboveHorizon)
-	case len(l.Horizon) > 0 && l.Horizon[0].Direction == astro.Rising:
-		title += " (seen from sunrise)"
-	case len(l.Horizon) > 0:
-		title += " (seen until sunset)"
+	if !x.Skyline { // else the skyline's suffix
+		title += horizonPart("Sun", l.Horizon, "sunrise", "sunset")
 	}
 	_, title = skylineText(s, e, x, "Sun", title, eclipsed)
 	return title, b.String()
@@ -394,14 +414,10 @@ func describeLunar(s *siteInfo, ev Event, x *EclipseFacts) (string, string) {
 	line("the total eclipse ends", l.U3, "")
 	line("the partial eclipse ends: the Moon leaves the umbra", l.U4, "")
 	line("the Moon leaves the penumbra: the eclipse ends", l.P4, "")
-	rises, sets := false, false
 	for _, h := range l.Horizon {
 		verb := "rises"
 		if h.Direction == astro.Setting {
 			verb = "sets"
-			sets = true
-		} else {
-			rises = true
 		}
 		if x.Skyline {
 			continue // the skyline's appearance and disappearance are said below
@@ -423,14 +439,8 @@ func describeLunar(s *siteInfo, ev Event, x *EclipseFacts) (string, string) {
 	default:
 		title = "Penumbral lunar eclipse: a slight dimming of the Moon"
 	}
-	switch {
-	case x.Skyline: // the skyline's suffix instead
-	case rises && sets:
-		title += " (the Moon rises and sets during it)"
-	case rises: // as the solar eclipse's
-		title += " (seen from moonrise)"
-	case sets:
-		title += " (seen until moonset)"
+	if !x.Skyline { // else the skyline's suffix
+		title += horizonPart("Moon", l.Horizon, "moonrise", "moonset")
 	}
 	_, title = skylineText(s, ev, x, "Moon", title, phase)
 	return title, b.String()

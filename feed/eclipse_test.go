@@ -344,3 +344,30 @@ func TestEclipseSaysWhenItIsSeen(t *testing.T) {
 		t.Errorf("description's second line, want %s:\n%s", re, e.Description)
 	}
 }
+
+// A solar eclipse the Sun both rises and sets during is titled so, not
+// "(seen from sunrise)" as though the site saw it to its end: the partial
+// eclipse of 14 January 2029 at 69.5° N, 82° W (Igloolik, Nunavut, in the
+// short days of its winter). PyEphem 4.1.4 (pressure 0, the Sun's upper limb
+// at −34′) has the Sun rise at 17:05:49 UT and set at 18:09:22 UT that day;
+// 1 min, since the Sun grazes the horizon there.
+func TestSolarEclipseRisesAndSets(t *testing.T) {
+	s := site(t, "igloolik", 69.5, -82, "America/Iqaluit")
+	es := eclipseEntries(t, s, "2029-01-14", "2029-01-14", "solar-eclipse")
+	if len(es) != 1 || es[0].Facts.Eclipse == nil || es[0].Facts.Eclipse.Solar == nil {
+		t.Fatalf("%d entries, want the solar eclipse of 14 January 2029: %+v", len(es), es)
+	}
+	e := es[0]
+	hs := e.Facts.Eclipse.Solar.Horizon
+	if len(hs) != 2 || hs[0].Direction != astro.Rising || hs[1].Direction != astro.Setting {
+		t.Fatalf("the Sun's horizon events %+v, want a rising then a setting", hs)
+	}
+	nearTime(t, "sunrise", hs[0].Time, "2029-01-14T17:05:49Z", time.Minute)
+	nearTime(t, "sunset", hs[1].Time, "2029-01-14T18:09:22Z", time.Minute)
+	if want := " (the Sun rises and sets during it)"; !strings.HasSuffix(e.Title, want) {
+		t.Errorf("title %q, want it to end %q", e.Title, want)
+	}
+	if lines := strings.Split(e.Description, "\n"); len(lines) < 2 || !strings.Contains(lines[1], " from sunrise at ") || !strings.Contains(lines[1], " to sunset at ") {
+		t.Errorf("description's second line, want when the Sun is up, from sunrise to sunset:\n%s", e.Description)
+	}
+}

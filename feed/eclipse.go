@@ -231,8 +231,9 @@ func skylineText(s *siteInfo, e Event, x *EclipseFacts, body, title string, phas
 // the site sees of the entry's span (the whole eclipse): "The Moon is above
 // the horizon, so seen from the site, from moonrise at 07:36:26 UTC to the
 // end of the eclipse at 09:03:09 UTC: 1 h 27 min of the eclipse's 3 h 39
-// min.\n", each time on another date than d followed by that date
-// (appendDayOf); rise and set name the body's rising and setting
+// min.\n", a time on another date than the one said before it (at first
+// d) followed by its date (appendDayOf, against d), as appendSpanDays marks
+// a span's end; rise and set name the body's rising and setting
 // ("moonrise", "moonset"). "" when it neither rises nor sets.
 func aboveHorizon(s *siteInfo, body string, hs []astro.HorizonEvent, up bool, start, end, d time.Time, rise, set string) string {
 	if len(hs) == 0 {
@@ -240,6 +241,13 @@ func aboveHorizon(s *siteInfo, body string, hs []astro.HorizonEvent, up bool, st
 	}
 	z := s.zone
 	b := append(append([]byte("The "), body...), " is above the horizon, so seen from the site,"...)
+	said := d // the date of the time said last
+	at := func(t time.Time) {
+		b = z.appendClock(b, t)
+		if td := z.dateOf(t); !td.Equal(said) {
+			b, said = z.appendDayOf(b, t, d), td
+		}
+	}
 	var seen time.Duration
 	from, fromWords, n := start, "the start of the eclipse", 0
 	span := func(to time.Time, toWords string) {
@@ -248,9 +256,9 @@ func aboveHorizon(s *siteInfo, body string, hs []astro.HorizonEvent, up bool, st
 		}
 		n++
 		b = append(append(append(b, " from "...), fromWords...), " at "...)
-		b = z.appendDayOf(z.appendClock(b, from), from, d)
+		at(from)
 		b = append(append(append(b, " to "...), toWords...), " at "...)
-		b = z.appendDayOf(z.appendClock(b, to), to, d)
+		at(to)
 		seen += ToSecond(to).Sub(ToSecond(from))
 	}
 	for _, h := range hs {

@@ -371,3 +371,30 @@ func TestSolarEclipseRisesAndSets(t *testing.T) {
 		t.Errorf("description's second line, want when the Sun is up, from sunrise to sunset:\n%s", e.Description)
 	}
 }
+
+// The description's line of when an eclipse is seen names a time's date
+// once, after the first time on it, as a span's end on its start's date is
+// not marked again: the partial eclipse of 11–12 June 2029 at 66° N, 62° W
+// (America/Iqaluit, EDT) begins on the evening of the 11th, and the Sun
+// sets and rises again after midnight, at 04:00:36 and 04:14:55 UT (00:00:36
+// and 00:14:55 EDT on the 12th; PyEphem 4.1.4, pressure 0, the Sun's upper
+// limb at −34′; 2 min, since the Sun grazes the horizon there).
+func TestEclipseSeenSaysDateOnce(t *testing.T) {
+	s := site(t, "davis-strait", 66, -62, "America/Iqaluit")
+	es := eclipseEntries(t, s, "2029-06-11", "2029-06-12", "solar-eclipse")
+	if len(es) != 1 || es[0].Date != date("2029-06-11") || es[0].Facts.Eclipse == nil || es[0].Facts.Eclipse.Solar == nil {
+		t.Fatalf("%d entries, want the solar eclipse of 11 June 2029: %+v", len(es), es)
+	}
+	e := es[0]
+	hs := e.Facts.Eclipse.Solar.Horizon
+	if len(hs) != 2 || hs[0].Direction != astro.Setting || hs[1].Direction != astro.Rising {
+		t.Fatalf("the Sun's horizon events %+v, want a setting then a rising", hs)
+	}
+	nearTime(t, "sunset", hs[0].Time, "2029-06-12T04:00:36Z", 2*time.Minute)
+	nearTime(t, "sunrise", hs[1].Time, "2029-06-12T04:14:55Z", 2*time.Minute)
+	lines := strings.Split(e.Description, "\n")
+	if len(lines) < 2 || strings.Count(lines[1], " the next day (Tue 12 Jun)") != 1 ||
+		!regexp.MustCompile(` to sunset at 00:0\d:\d\d EDT the next day \(Tue 12 Jun\) and from sunrise at 00:1\d:\d\d EDT to `).MatchString(lines[1]) {
+		t.Errorf("description's second line, want the next day named once, after sunset:\n%s", e.Description)
+	}
+}

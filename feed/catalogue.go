@@ -1177,7 +1177,7 @@ func (w *entryWriter) event(spec *config.KindSpec, e *Event) {
 		w.scratch = append(w.scratch[:0], w.text[from:]...)
 		at := e.Start.Add(offset)
 		w.text = z.appendClock(append(append(w.text[:from], title...), ": "...), at)
-		w.text = append(appendOtherDay(w.text, z.date(time.Unix(UnixSecond(at), 0)), e.Date), ".\n"...) // the date of the clock as shown
+		w.text = append(z.appendDayOf(w.text, at, e.Date), ".\n"...)
 		w.text = append(w.text, w.scratch...)
 	}
 	if spec.Label != "" {

@@ -253,9 +253,10 @@ func appendDays(b []byte, n int64) []byte {
 }
 
 // appendOtherDay appends, after the clock time of an instant on the local
-// date at that is listed under the date d (an event moved past midnight
-// by its offset), which date it is: " the next day (Mon 13 Mar)", " the
-// day before (Sat 11 Mar)", " on Wed 15 Mar"; nothing when at is d.
+// date at in a description of an entry listed under the date d (a plan's
+// time, an event moved past midnight by its offset, a span's end: see
+// appendDayOf), which date it is: " the next day (Mon 13 Mar)", " the day
+// before (Sat 11 Mar)", " on Wed 15 Mar"; nothing when at is d.
 func appendOtherDay(b []byte, at, d time.Time) []byte {
 	switch n := floorDiv(at.Unix()-d.Unix(), secondsPerDay); n {
 	case 0:

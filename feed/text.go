@@ -364,7 +364,8 @@ func NightOf(d time.Time, loc *time.Location) string {
 // DayMark returns "" when the instant t (as shown, to the second) falls on
 // the local date d (00:00 UTC) in loc, else " +1 day" (" +2 days", " −1
 // day"): written after the clock time of an event listed under another date,
-// such as the after-midnight part of a night.
+// such as the after-midnight part of a night, in a title and the tables of
+// heliocal events; a description names the date instead (appendDayOf).
 func DayMark(t, d time.Time, loc *time.Location) string {
 	return string(appendDays(nil, int64(math.Round(localDate(ToSecond(t), loc).Sub(d).Hours()/24))))
 }

@@ -77,6 +77,15 @@ func TestEclipseEntriesVienna(t *testing.T) {
 	if lun.Title != "Partial lunar eclipse: 93 % of the Moon's diameter in the Earth's shadow (seen until moonset)" {
 		t.Errorf("lunar title %q", lun.Title)
 	}
+	// the README's example of when an eclipse is seen: from P1 (above) to
+	// the moonset of 04:14:40 UT, 06:14:40 CEST (PyEphem 4.1.4: pressure 0,
+	// the Moon's upper limb at −34′ less the dip of 190 m, 24.3′; 2 s), of
+	// the eclipse from P1 to P4
+	seen := regexp.MustCompile(`^The Moon is above the horizon, so seen from the site, from the start of the eclipse at 03:2[34]:\d\d CEST ` +
+		`to moonset at 06:14:(3[89]|4[0-2]) CEST: 2 h 5[01] min of the eclipse's 5 h 3[78] min\.$`)
+	if lines := strings.Split(lun.Description, "\n"); len(lines) < 2 || !seen.MatchString(lines[1]) {
+		t.Errorf("lunar description's second line, want %s:\n%s", seen, lun.Description)
+	}
 	if got := strings.Join(sol.Categories, ","); got != "Sun,Solar eclipse" {
 		t.Errorf("categories %s", got)
 	}

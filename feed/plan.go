@@ -997,6 +997,8 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 		}
 		ed := z.date(en.End)
 		en.Facts.NextDay = ed.After(d)
+		endAt := en.End.In(z.loc)
+		endFrom, _ := astro.ZonePeriod(endAt)
 		switch {
 		case both:
 			b = append(append(append(b, " ("...), bothMovedWords(sm, em)...), ')')
@@ -1004,6 +1006,10 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 			b = appendMoved(b, em, eMoved, ed, false)
 		case eMoved && em.by < 0 && sm.by < 0: // the start said why
 			b = append(append(append(b, " (the first "...), clockText(em.written)...), " too)"...)
+		case !eMoved && secondPass(endAt, endFrom):
+			// after the clocks went back (a for: or an event's end), the
+			// reading the start may have called the first
+			b = append(append(append(b, " (the second "...), endAt.Format("15:04")...), ')')
 		default: // the date of a move is not said twice either
 			b = appendMoved(b, em, eMoved, time.Time{}, next.IsZero() || !ed.Equal(next))
 		}

@@ -950,7 +950,9 @@ func TestPlanClockRepeatedTakesTheFirst(t *testing.T) {
 // first 01:30 (05:30 UT), before the change. The nights before have no
 // such note. A plan whose end alone is shown twice (Havana, 23:50 to 00:20
 // the night before) says it of its end, and one whose start and end both
-// are (00:15 to 00:45) says it once in full.
+// are (00:15 to 00:45) says it once in full. An end after the change at a
+// reading the clocks showed before it is "the second" (00:00 CST, the
+// second 00:00; 23:15 UT − 4 h in Santiago below).
 func TestPlanClockRepeatedSaysSo(t *testing.T) {
 	const havana = "which the clocks show twice: on Sun 7 Nov 2027 at 01:00 CDT they go back from summer time by 1 h)"
 	hav := site(t, "hav", 23.13, -82.38, "America/Havana")
@@ -961,7 +963,7 @@ func TestPlanClockRepeatedSaysSo(t *testing.T) {
 	if want := "From 00:30:00 CDT to 01:00:00 CDT."; !strings.HasPrefix(es[0].Description, want) {
 		t.Errorf("6 November: %q, want %q", es[0].Description, want)
 	}
-	if want := "From 00:30:00 CDT (the first 00:30, " + havana + " to 00:00:00 CST."; !strings.HasPrefix(es[1].Description, want) ||
+	if want := "From 00:30:00 CDT (the first 00:30, " + havana + " to 00:00:00 CST (the second 00:00)."; !strings.HasPrefix(es[1].Description, want) ||
 		!es[1].Start.Equal(time.Date(2027, 11, 7, 4, 30, 0, 0, time.UTC)) {
 		t.Errorf("7 November: %q from %s, want %q from 04:30 UT", es[1].Description, es[1].Start.UTC(), want)
 	}
@@ -992,7 +994,7 @@ func TestPlanClockRepeatedSaysSo(t *testing.T) {
 	if len(es) != 1 {
 		t.Fatalf("%d entries", len(es))
 	}
-	if want := "From 23:15:00 UTC−03 (the first 23:15, which the clocks show twice: on Sun 4 Apr 2027 at 00:00 UTC−03 they go back from summer time by 1 h) to 23:15:00 UTC−04."; !strings.HasPrefix(es[0].Description, want) {
+	if want := "From 23:15:00 UTC−03 (the first 23:15, which the clocks show twice: on Sun 4 Apr 2027 at 00:00 UTC−03 they go back from summer time by 1 h) to 23:15:00 UTC−04 (the second 23:15)."; !strings.HasPrefix(es[0].Description, want) {
 		t.Errorf("3 April: %q, want %q", es[0].Description, want)
 	}
 	// A change that is not whole minutes is said to the second: zdump -v
@@ -1025,6 +1027,36 @@ func TestPlanClockRepeatedSaysSo(t *testing.T) {
 		es = planEntries(t, hav, c.from, c.from, c.pl)
 		if len(es) != 1 || !strings.HasPrefix(es[0].Description, c.want) || !es[0].End.Equal(c.end) {
 			t.Errorf("%s on %s: %v, want %q to %s", c.pl.Title, c.from, es, c.want, c.end)
+		}
+	}
+}
+
+// The end of a plan that the clocks going back put in the second pass of a
+// reading is called so, as its start in the first is: zdump -v
+// Pacific/Chatham gives 03:44:59 +1345 at 13:59:59 UT on Sat 3 April 2027,
+// then 02:45:00 +1245, so the readings 02:45–03:45 are shown twice on
+// Sun 4 April. A plan from the first 03:15 for 1 h ends at the second
+// 03:15; one from 02:00 for 2 h at the second 03:00; one from the first
+// 03:15 for 30 min at the change itself, the second 02:45. The day before,
+// no end is "the second".
+func TestPlanEndInSecondPass(t *testing.T) {
+	s := site(t, "chatham", -43.95, -176.56, "Pacific/Chatham")
+	const back = "which the clocks show twice: on Sun 4 Apr 2027 at 03:45 UTC+13:45 they go back from summer time by 1 h)"
+	for _, c := range []struct {
+		start string
+		long  time.Duration
+		want  string
+	}{
+		{"03:15", time.Hour, "From 03:15:00 UTC+13:45 (the first 03:15, " + back + " to 03:15:00 UTC+12:45 (the second 03:15)."},
+		{"02:00", 2 * time.Hour, "From 02:00:00 UTC+13:45 to 03:00:00 UTC+12:45 (the second 03:00). The clocks go back"},
+		{"03:15", 30 * time.Minute, "From 03:15:00 UTC+13:45 (the first 03:15, " + back + " to 02:45:00 UTC+12:45 (the second 02:45)."},
+	} {
+		es := planEntries(t, s, "2027-04-03", "2027-04-04", config.Plan{Title: "Watch", Date: "every day", Start: c.start, For: config.Duration(c.long)})
+		if len(es) != 2 {
+			t.Fatalf("%s for %s: %d entries, want 2", c.start, c.long, len(es))
+		}
+		if strings.Contains(es[0].Description, "second") || !strings.HasPrefix(es[1].Description, c.want) {
+			t.Errorf("%s for %s:\n%q\n%q\nwant the second\n%q", c.start, c.long, es[0].Description, es[1].Description, c.want)
 		}
 	}
 }

@@ -47,13 +47,20 @@ func ShownTwice(t time.Time) bool {
 			return true
 		}
 	}
-	if !start.IsZero() {
-		_, prev := start.Add(-time.Second).Zone()
-		if back := time.Duration(prev-off) * time.Second; back > 0 && t.Sub(start) < back {
-			return true
-		}
+	return secondPass(t, start)
+}
+
+// secondPass reports whether t, in the period of its zone that begins at
+// start (astro.ZonePeriod), is the second pass of a reading the clocks
+// show twice: within the time they went back at start.
+func secondPass(t, start time.Time) bool {
+	if start.IsZero() {
+		return false
 	}
-	return false
+	_, off := t.Zone()
+	_, prev := start.Add(-time.Second).Zone()
+	back := time.Duration(prev-off) * time.Second
+	return back > 0 && t.Sub(start) < back
 }
 
 // shownAgain is how far the clocks go back at a change of offset from off

@@ -2,6 +2,8 @@ package main
 
 import (
 	"bytes"
+	"encoding/json"
+	"fmt"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -58,6 +60,64 @@ feeds:
 		}
 		if args[0] == "--feed" && args[len(args)-1] == "csv" && !bytes.Contains(outs[0], []byte(".\nNatural day")) {
 			t.Errorf("%v: no lamp period's description of two lines, its LF in a quoted cell:\n%s", args, outs[0])
+		}
+	}
+}
+
+// The README's "For scripts": a field of an event or an entry that does not
+// apply is left out of the JSON, never null or false, over a listing of
+// many kinds (timed and all-day entries, notes, lamp periods, plans,
+// eclipses, Moon kinds) at a site north of the Arctic Circle, whose polar
+// dates give notes too.
+func TestEventsJSONLeavesOutWhatDoesNotApply(t *testing.T) {
+	cfg := writeConfig(t, `sites:
+  - {id: tromso, latitude: 69.65, longitude: 18.96, timezone: Europe/Oslo}
+feeds:
+  - id: tromso-all
+    site: tromso
+    kinds: [sunrise, sunset, daily-summary, civil-dusk, dark-window, golden-hour, moonrise, full-moon, photoperiod:12h, lunar-eclipse, lighting:18h]
+    plans:
+      - {title: Night watch, date: every friday, start: astronomical-dusk, end: astronomical-dawn}
+      - {title: Market day, date: every saturday}
+`)
+	var walk func(path string, v any)
+	walk = func(path string, v any) {
+		switch x := v.(type) {
+		case nil:
+			t.Errorf("%s is null", path)
+		case bool:
+			if !x {
+				t.Errorf("%s is false", path)
+			}
+		case map[string]any:
+			for k, y := range x {
+				walk(path+"."+k, y)
+			}
+		case []any:
+			for i, y := range x {
+				walk(fmt.Sprintf("%s[%d]", path, i), y)
+			}
+		}
+	}
+	for _, args := range [][]string{
+		{"--feed", "tromso-all", "--from", "2027-12-10", "--to", "2028-01-20"},
+		{"--site", "tromso", "--kinds", "sunrise,sunset,daily-summary,dark-window,moonrise,lunar-eclipse,photoperiod:12h,lighting:18h", "--from", "2027-12-10", "--to", "2028-01-20"},
+	} {
+		code, out, errOut := runCLI(t, append(append([]string{"events", "--config", cfg}, args...), "--format", "json")...)
+		if code != 0 {
+			t.Fatalf("%v: exit %d: %s", args, code, errOut)
+		}
+		var doc map[string]any
+		if err := json.Unmarshal([]byte(out), &doc); err != nil {
+			t.Fatalf("%v: %v", args, err)
+		}
+		for _, list := range []string{"entries", "events", "notes"} {
+			if items, ok := doc[list].([]any); ok {
+				if len(items) == 0 && list != "notes" {
+					t.Errorf("%v: no %s to look at", args, list)
+				}
+				walk(list, items)
+			}
 		}
 	}
 }

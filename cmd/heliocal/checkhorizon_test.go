@@ -77,3 +77,31 @@ feeds:
 		}
 	}
 }
+
+// docs/serving.md ("Upgrading"): at sea level a horizon written 0 changes
+// only the refraction, 34.5′ for 34′ (the Sun's centre at −50.48′ instead
+// of −50′), so sunrise comes 3 s earlier at 48.2° N 16.4° E on 1 March 2027
+// and 7 s at 60.2° N 24.9° E on 21 June 2027. PyEphem 4.1.4 (pressure 0,
+// use_center, horizon −0:50 and −0:50.48): 05:36:21 and 05:36:18 UTC;
+// 00:53:48 and 00:53:41 UTC.
+func TestHorizonZeroAtSeaLevelOnlyRefraction(t *testing.T) {
+	for _, c := range []struct {
+		lat, lon, tz, date string
+		dip, level         string
+	}{
+		{"48.2", "16.4", "Europe/Vienna", "2027-03-01", "06:36:21 CET", "06:36:18 CET"},
+		{"60.2", "24.9", "Europe/Helsinki", "2027-06-21", "03:53:48 EEST", "03:53:41 EEST"},
+	} {
+		for horizon, want := range map[string]string{"": c.dip, "0": c.level} {
+			args := []string{"events", "--lat", c.lat, "--lon", c.lon, "--tz", c.tz,
+				"--kinds", "sunrise", "--from", c.date, "--to", c.date}
+			if horizon != "" {
+				args = append(args, "--horizon", horizon)
+			}
+			code, out, errOut := runCLI(t, args...)
+			if code != 0 || !strings.Contains(out, want) {
+				t.Errorf("%s° N %s --horizon %q: exit %d, want sunrise %s:\n%s%s", c.lat, c.date, horizon, code, want, out, errOut)
+			}
+		}
+	}
+}

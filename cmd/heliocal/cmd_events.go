@@ -376,6 +376,9 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 	if out == nil {
 		return badInput("--format: %q: use table, json, csv or ics", o.format)
 	}
+	if t, ok := out.(*tableSink); ok {
+		t.expect(specs, from, to)
+	}
 	if err := feed.PreparedChunks(ctx, sky, feed.PlaceOf(site), specs, from, to, out.prepare, out.write); err != nil {
 		return err
 	}

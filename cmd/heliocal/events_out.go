@@ -868,10 +868,13 @@ func (c *csvSink) close() error {
 }
 
 // tableSink writes the readable table: a heading, then DATE, TIME, KIND
-// and DETAILS columns separated by two spaces at least. A chunk's rows are
-// aligned together; the column widths only grow from one chunk to the next
-// (a wider zone abbreviation or kind name later in a long span shifts the
-// rows after it).
+// and DETAILS columns separated by two spaces at least. The streamed
+// command sets the TIME and KIND columns' widths before the first row
+// (expect): as wide as the zone's longest label over the dates and the
+// longest kind asked for, so that a "CEST" after "CET" or a
+// "september-equinox" late in a long span does not push the rows after it
+// out of line with the heading. A column wider still in a chunk (a day
+// mark, " +1 day", of a time past midnight) widens it from that chunk on.
 type tableSink struct {
 	w      *bufio.Writer
 	loc    *time.Location
@@ -933,6 +936,41 @@ func rowWidths(widths [3]int, r *[4]string) [3]int {
 		widths[i] = max(widths[i], utf8.RuneCountInString(r[i]))
 	}
 	return widths
+}
+
+// expect widens the TIME and KIND columns to what the kinds of specs can
+// write over the local dates from..to when they take more than one chunk
+// (feed.ChunkDays dates): every kind's name (a group's members': "seasons"
+// lists "september-equinox") and a clock, "06:47:12 CEST", with each label
+// the zone has over those dates (astro.ZoneChanges). A kind of a few dates
+// a year may then have a column wider than its rows need (a march-equinox
+// asked over a span without one); the dates of one chunk are aligned by
+// their own rows.
+func (t *tableSink) expect(specs []config.KindSpec, from, to time.Time) {
+	day := func(d time.Time) time.Time { return time.Date(d.Year(), d.Month(), d.Day(), 0, 0, 0, 0, time.UTC) }
+	if day(to).Sub(day(from)) < feed.ChunkDays*24*time.Hour {
+		return
+	}
+	for _, s := range specs {
+		for _, k := range s.Kind.Members() {
+			t.widths[2] = max(t.widths[2], utf8.RuneCountInString(k.String()))
+		}
+	}
+	start := time.Date(from.Year(), from.Month(), from.Day(), 0, 0, 0, 0, t.loc)
+	end := time.Date(to.Year(), to.Month(), to.Day()+1, 0, 0, 0, 0, t.loc)
+	label := func(at time.Time) {
+		t.widths[1] = max(t.widths[1], len("15:04:05 ")+utf8.RuneCountInString(feed.ZoneLabel(zoneAbbr(at))))
+	}
+	label(start)
+	for at := range astro.ZoneChanges(t.loc, start, end) {
+		label(at)
+	}
+}
+
+// zoneAbbr is the abbreviation of t's zone at t.
+func zoneAbbr(t time.Time) string {
+	abbr, _ := t.Zone()
+	return abbr
 }
 
 // tableHeading is the table's first row.

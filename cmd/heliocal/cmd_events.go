@@ -334,7 +334,14 @@ func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {
 			return err
 		}
 	}
-	if err := checkRange(from, to); err != nil {
+	toDefault := ""
+	if o.to == "" {
+		toDefault = "--from + 6 days"
+		if o.from == "" {
+			toDefault = "today + 6 days"
+		}
+	}
+	if err := checkRange(from, to, toDefault); err != nil {
 		return err
 	}
 	if site.ZoneInferred { // named with its offset on the first date listed

@@ -82,7 +82,11 @@ func runEventsFeed(ctx context.Context, g *globals, o *eventsOptions) error {
 			return err
 		}
 	}
-	if err := checkRange(first, last); err != nil {
+	toDefault := ""
+	if o.from != "" && o.to == "" {
+		toDefault = "--from + 6 days"
+	}
+	if err := checkRange(first, last, toDefault); err != nil {
 		return err
 	}
 	cal, err := cat.CalendarBetween(ctx, f, first, last)
@@ -116,11 +120,20 @@ func runEventsFeed(ctx context.Context, g *globals, o *eventsOptions) error {
 // checkRange refuses a date range that is reversed or outside the supported
 // dates 1800-01-01..2200-12-31 (astro computes a month beyond them, enough
 // for the ephemeris, the plans and far time zones).
-func checkRange(from, to time.Time) error {
+//
+// toDefault says where to came from when --to was not given ("--from + 6
+// days"), "" when it was: a range that ends past the supported dates only by
+// that default says so and which --to the range can have, the user never
+// having written its end.
+func checkRange(from, to time.Time, toDefault string) error {
 	if to.Before(from) {
 		return badInput("--to: %s is before --from %s", to.Format(time.DateOnly), from.Format(time.DateOnly))
 	}
 	lo, hi := astro.MinTime(), astro.MaxTime().AddDate(0, 0, -1)
+	if toDefault != "" && !from.Before(lo) && !from.After(hi) && to.After(hi) {
+		return badInput("--to: not given, so %s: %s..%s, past the supported dates %s..%s: give --to %s", toDefault,
+			from.Format(time.DateOnly), to.Format(time.DateOnly), lo.Format(time.DateOnly), hi.Format(time.DateOnly), hi.Format(time.DateOnly))
+	}
 	if from.Before(lo) || to.After(hi) {
 		return badInput("--from/--to: %s..%s: outside the supported dates %s..%s", from.Format(time.DateOnly),
 			to.Format(time.DateOnly), lo.Format(time.DateOnly), hi.Format(time.DateOnly))

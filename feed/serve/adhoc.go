@@ -366,9 +366,27 @@ func (q *AdhocQuery) parseWindow(get getter, now time.Time, lim *adhocLimits) er
 	}
 	first := time.Date(lim.minYear, 1, 1, 0, 0, 0, 0, time.UTC)
 	last := time.Date(lim.maxYear, 12, 31, 0, 0, 0, 0, time.UTC)
-	if q.Start.Before(first) || q.Start.AddDate(0, 0, q.Days-1).After(last) {
+	if q.Start.Before(first) || q.Start.After(last) {
 		return &QueryError{Param: ParamStart, Value: v,
 			Msg: fmt.Sprintf("the window must lie within %d-01-01..%d-12-31", lim.minYear, lim.maxYear)}
+	}
+	if end := q.Start.AddDate(0, 0, q.Days-1); end.After(last) {
+		// the end is not written in the query: say how the window gets
+		// there and which start keeps it within the dates
+		days := "1 day"
+		if q.Days > 1 {
+			days = strconv.Itoa(q.Days) + " days"
+		}
+		if _, ok := get(ParamDays); !ok {
+			days += " (days not given)"
+		}
+		fix := ""
+		if q.Days > 1 {
+			fix = ", or ask fewer days"
+		}
+		return &QueryError{Param: ParamStart, Value: v,
+			Msg: fmt.Sprintf("the window of %s from it ends %s, past the supported dates %d-01-01..%d-12-31: start %s at the latest%s",
+				days, end.Format(time.DateOnly), lim.minYear, lim.maxYear, last.AddDate(0, 0, 1-q.Days).Format(time.DateOnly), fix)}
 	}
 	return nil
 }

@@ -131,6 +131,15 @@ func TestAdhocBadParameters(t *testing.T) {
 		{ok + "&start=26-02-03", "start", `"26-02-03": not a date (write the year in full: 2026-02-03)`},
 		{ok + "&start=1799-12-31", "start", `"1799-12-31"`},
 		{ok + "&start=2200-12-01&days=60", "start", `"2200-12-01"`},
+		// a window past the last date says where it ends and which start
+		// fits: Gregorian calendar, 2200 a common year (divisible by 100,
+		// not by 400), 2200-12-01 + 59 days = 2201-01-29, 2200-12-31 − 59
+		// days = 2200-11-02; the default window is 365 days
+		// (DefaultAdhocDefaultDays): 2200-12-31 + 364 days = 2201-12-30,
+		// 2200-12-31 − 364 days = 2200-01-01
+		{ok + "&start=2200-12-01&days=60", "start", `"2200-12-01": the window of 60 days from it ends 2201-01-29, past the supported dates 1800-01-01..2200-12-31: start 2200-11-02 at the latest, or ask fewer days`},
+		{ok + "&start=2200-12-31", "start", `"2200-12-31": the window of 365 days (days not given) from it ends 2201-12-30, past the supported dates 1800-01-01..2200-12-31: start 2200-01-01 at the latest, or ask fewer days`},
+		{ok + "&start=2201-01-01&days=1", "start", `"2201-01-01": the window must lie within 1800-01-01..2200-12-31`},
 		{ok + "&elev=9001", "elev", `"9001"`},
 		{ok + "&elev=-501", "elev", `"-501"`},
 		{ok + "&elev=12000", "elev", `"12000": must be within -500..9000 metres (metres above sea level, not feet: write 3658 for 12000 ft)`}, // 12000 × 0.3048 m = 3657.6 m (the international foot, 0.3048 m exactly: NIST SP 811, appendix B)

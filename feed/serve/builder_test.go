@@ -6,6 +6,8 @@ import (
 	"encoding/base64"
 	"encoding/json"
 	"errors"
+	"fmt"
+	"html"
 	"io"
 	"net/http"
 	"strconv"
@@ -622,5 +624,28 @@ func TestAdhocOffsetZoneNamesZoneAtPlace(t *testing.T) {
 	want := `parameter tz="+12:45": unknown time zone (a UTC offset is not a time zone: the zone at the place's latitude and longitude is "Pacific/Chatham", which follows its clock changes)`
 	if m := body(t, r); r.StatusCode != 400 || !strings.Contains(m, want) {
 		t.Errorf("tz=+12:45: %d %q, want 400 saying %q", r.StatusCode, m, want)
+	}
+}
+
+// The preview, the table and the builder refuse a start whose seven days
+// (previewDays, days not given) run past the last supported date, and say
+// so with the start that fits: 2200-12-31 + 6 days = 2201-01-06,
+// 2200-12-31 − 6 days = 2200-12-25 (Gregorian calendar).
+func TestPreviewStartPastLastDate(t *testing.T) {
+	s := builderTestServer(t)
+	want := `start=%q: the window of 7 days (days not given) from it ends 2201-01-06, past the supported dates 1800-01-01..2200-12-31: start 2200-12-25 at the latest, or ask fewer days`
+	want = fmt.Sprintf(want, "2200-12-31")
+	r := get(t, s.Handler(), "GET", "/at.json?lat=48.2&lon=16.4&kinds=sunrise&start=2200-12-31")
+	if m := body(t, r); r.StatusCode != 400 || !strings.Contains(m, want) {
+		t.Errorf("/at.json: %d %q, want 400 and %q", r.StatusCode, m, want)
+	}
+	escaped := html.EscapeString(want)
+	for _, path := range []string{"/at?lat=48.2&lon=16.4&kinds=sunrise&start=2200-12-31", "/?lat=48.2&lon=16.4&kinds=sunrise&start=2200-12-31"} {
+		if m := body(t, get(t, s.Handler(), "GET", path)); !strings.Contains(m, escaped) {
+			t.Errorf("%s: no %q in the page", path, escaped)
+		}
+	}
+	if r := get(t, s.Handler(), "GET", "/at.json?lat=48.2&lon=16.4&kinds=sunrise&start=2200-12-25"); r.StatusCode != 200 {
+		t.Errorf("start=2200-12-25: status %d, want 200", r.StatusCode)
 	}
 }

@@ -306,7 +306,7 @@ func describeMoon(s *siteInfo, e Event) (title, row, desc string) {
 		fmt.Fprintf(&b, "Dark sky on the %s from ", NightOf(e.Date, loc))
 		b.Write(s.zone.appendSpanDays(nil, e.Start, e.End, e.Date))
 		b.WriteString(length + ").")
-		b.WriteString(clocksDuring(ToSecond(e.Start), ToSecond(e.End), loc))
+		b.WriteString(s.zone.clocksDuring(e.Start, e.End))
 	default:
 		return e.Kind.String(), "", fmt.Sprintf("%s at %s.", e.Kind, at)
 	}
@@ -388,4 +388,15 @@ func clocksDuring(start, end time.Time, loc *time.Location) string {
 			ChangeClock(was), ZoneLabel(before), ChangeClock(now), ZoneLabel(after))
 	}
 	return b.String()
+}
+
+// clocksDuring is clocksDuring of the span from start to end as shown (to
+// the second), its two ends' offsets looked up in z: nearly every span has
+// the same at both, and then nothing more is looked up.
+func (z *zoneCache) clocksDuring(start, end time.Time) string {
+	_, from := z.at(UnixSecond(start))
+	if _, to := z.at(UnixSecond(end)); from == to {
+		return ""
+	}
+	return clocksDuring(ToSecond(start), ToSecond(end), z.loc)
 }

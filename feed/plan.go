@@ -997,8 +997,6 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 		}
 		ed := z.date(en.End)
 		en.Facts.NextDay = ed.After(d)
-		endAt := en.End.In(z.loc)
-		endFrom, _ := astro.ZonePeriod(endAt)
 		switch {
 		case both:
 			b = append(append(append(b, " ("...), bothMovedWords(sm, em)...), ')')
@@ -1006,10 +1004,10 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 			b = appendMoved(b, em, eMoved, ed, false)
 		case eMoved && em.by < 0 && sm.by < 0: // the start said why
 			b = append(append(append(b, " (the first "...), clockText(em.written)...), " too)"...)
-		case !eMoved && secondPass(endAt, endFrom):
+		case !eMoved && z.secondPass(en.End):
 			// after the clocks went back (a for: or an event's end), the
 			// reading the start may have called the first
-			b = append(append(append(b, " (the second "...), endAt.Format("15:04")...), ')')
+			b = append(append(append(b, " (the second "...), en.End.In(z.loc).Format("15:04")...), ')')
 		default: // the date of a move is not said twice either
 			b = appendMoved(b, em, eMoved, time.Time{}, next.IsZero() || !ed.Equal(next))
 		}
@@ -1020,7 +1018,7 @@ func (w *entryWriter) plan(pl *plan, pt *planText, pd planDate, times map[config
 	// further apart than its length; not when a time beside it has said
 	// the change (moved, or shown twice)
 	if !en.End.IsZero() && (across || !sMoved && !eMoved) {
-		b = append(b, clocksDuring(ToSecond(start), ToSecond(en.End), z.loc)...)
+		b = append(b, z.clocksDuring(start, en.End)...)
 	}
 	// the legal caution is for times the sky sets; a plan from 23:30 to
 	// 00:30 by the clock has none

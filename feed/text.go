@@ -63,6 +63,20 @@ func secondPass(t, start time.Time) bool {
 	return back > 0 && t.Sub(start) < back
 }
 
+// secondPass is the package's secondPass of t in its zone's period, the
+// offsets looked up in z: the reading of t is the second that day when the
+// offset before t's period was ahead of it by more than t is into it.
+func (z *zoneCache) secondPass(t time.Time) bool {
+	u := t.Unix()
+	_, off := z.at(u)
+	from := z.from
+	if from == math.MinInt64 {
+		return false
+	}
+	_, prev := z.at(from - 1)
+	return prev > off && u-from < prev-off
+}
+
 // shownAgain is how far the clocks go back at a change of offset from off
 // to next (seconds east of UTC) that comes toChange after an instant whose
 // reading they show again after it (the instant is in the first pass of
@@ -215,10 +229,8 @@ func (z *zoneCache) date(t time.Time) time.Time {
 
 // appendClock appends localClock(t, z.loc) to b, the zone looked up in z.
 func (z *zoneCache) appendClock(b []byte, t time.Time) []byte {
-	u := UnixSecond(t)
-	name, off := z.at(u)
-	s := daySeconds(u + off)
-	return appendClockZone(b, s/3600, s/60%60, s%60, name)
+	b, _ = z.appendClockDay(b, t)
+	return b
 }
 
 // appendStamp appends t as t.In(z.loc).Format("Mon 2 Jan 2006 15:04 ")
@@ -265,9 +277,18 @@ func appendDays(b []byte, n int64) []byte {
 // appendDayOf), which date it is: " the next day (Mon 13 Mar)", " the day
 // before (Sat 11 Mar)", " on Wed 15 Mar"; nothing when at is d.
 func appendOtherDay(b []byte, at, d time.Time) []byte {
-	switch n := floorDiv(at.Unix()-d.Unix(), secondsPerDay); n {
-	case 0:
+	return appendOtherDayNumber(b, floorDiv(at.Unix(), secondsPerDay), floorDiv(d.Unix(), secondsPerDay))
+}
+
+// appendOtherDayNumber is appendOtherDay of two dates given as days since
+// 1970-01-01: the instant's day and the entry's, nothing written when they
+// are the same day.
+func appendOtherDayNumber(b []byte, day, ref int64) []byte {
+	if day == ref {
 		return b
+	}
+	at := time.Unix(day*secondsPerDay, 0).UTC()
+	switch day - ref {
 	case 1:
 		return append(at.AppendFormat(append(b, " the next day ("...), "Mon 2 Jan"), ')')
 	case -1:
@@ -283,7 +304,7 @@ func appendOtherDay(b []byte, at, d time.Time) []byte {
 // nothing when it is d. Titles and the listing's tables keep the short
 // mark (DayMark): " +1 day".
 func (z *zoneCache) appendDayOf(b []byte, t, d time.Time) []byte {
-	return appendOtherDay(b, z.dateOf(t), d)
+	return appendOtherDayNumber(b, z.dayOf(UnixSecond(t)), floorDiv(d.Unix(), secondsPerDay))
 }
 
 // dateOf is the local date (00:00 UTC) of the instant t as shown, to the
@@ -292,12 +313,20 @@ func (z *zoneCache) dateOf(t time.Time) time.Time {
 	return time.Unix(z.dayOf(UnixSecond(t))*secondsPerDay, 0).UTC()
 }
 
-// appendDayBracket appends appendDayOf(t, d) and opens the bracket that
-// follows the clock time, so that one bracket holds the date and what the
-// caller writes next (a length): " the next day (Sun 10 Jan; " or " (".
-func (z *zoneCache) appendDayBracket(b []byte, t, d time.Time) []byte {
+// appendDayBracket appends the date of the instant t against the date ref
+// (days since 1970-01-01, endRef), as appendDayOf writes it, and opens the
+// bracket that follows the clock time, so that one bracket holds the date
+// and what the caller writes next (a length): " the next day (Sun 10 Jan; "
+// or " (".
+func (z *zoneCache) appendDayBracket(b []byte, t time.Time, ref int64) []byte {
+	return appendDayNumberBracket(b, z.dayOf(UnixSecond(t)), ref)
+}
+
+// appendDayNumberBracket is appendDayBracket of a date given as days since
+// 1970-01-01.
+func appendDayNumberBracket(b []byte, day, ref int64) []byte {
 	n := len(b)
-	if b = z.appendDayOf(b, t, d); len(b) > n && b[len(b)-1] == ')' {
+	if b = appendOtherDayNumber(b, day, ref); len(b) > n && b[len(b)-1] == ')' {
 		return append(b[:len(b)-1], ';', ' ')
 	}
 	return append(b, ' ', '(')
@@ -308,20 +337,36 @@ func (z *zoneCache) appendDayBracket(b []byte, t, d time.Time) []byte {
 // (appendDayOf), an end on the start's date not marked again, and opens the
 // bracket after the end (appendDayBracket): "18:32:07 MST to 05:45:42 MST
 // the next day (Sun 10 Jan; ", "01:04:36 MDT the next day (Sun 7 Nov) to
-// 05:04:29 MST (".
+// 05:04:29 MST (". Each end's zone is looked up once, for its clock time
+// and its date.
 func (z *zoneCache) appendSpanDays(b []byte, start, end, d time.Time) []byte {
-	b = z.appendDayOf(z.appendClock(b, start), start, d)
-	return z.appendDayBracket(z.appendClock(append(b, " to "...), end), end, z.endRef(start, end, d))
+	ref := floorDiv(d.Unix(), secondsPerDay)
+	b, sday := z.appendClockDay(b, start)
+	b = appendOtherDayNumber(b, sday, ref)
+	b, eday := z.appendClockDay(append(b, " to "...), end)
+	if eday == sday {
+		ref = sday
+	}
+	return appendDayNumberBracket(b, eday, ref)
 }
 
-// endRef is the date an end's date is said against (appendDayOf) in a span
-// from start listed under d: the start's date when the end falls on it,
-// said once after the start; else d.
-func (z *zoneCache) endRef(start, end, d time.Time) time.Time {
-	if sd := z.dateOf(start); sd.Equal(z.dateOf(end)) {
+// appendClockDay is appendClock, and the instant's local date as shown, in
+// days since 1970-01-01.
+func (z *zoneCache) appendClockDay(b []byte, t time.Time) ([]byte, int64) {
+	u := UnixSecond(t)
+	name, off := z.at(u)
+	s := daySeconds(u + off)
+	return appendClockZone(b, s/3600, s/60%60, s%60, name), floorDiv(u+off, secondsPerDay)
+}
+
+// endRef is the date (days since 1970-01-01) an end's date is said against
+// (appendDayBracket) in a span from start listed under d: the start's date
+// when the end falls on it, said once after the start; else d.
+func (z *zoneCache) endRef(start, end, d time.Time) int64 {
+	if sd := z.dayOf(UnixSecond(start)); sd == z.dayOf(UnixSecond(end)) {
 		return sd
 	}
-	return d
+	return floorDiv(d.Unix(), secondsPerDay)
 }
 
 // floorDiv is a/b rounded towards minus infinity (b > 0).

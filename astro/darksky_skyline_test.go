@@ -173,18 +173,24 @@ func darkSpansBrute(a, b time.Time, sun, moon []Crossing, up0 bool) []Span {
 	return out
 }
 
+// skylineQuerySetup gives the skyline queries' tests an ephemeris of three
+// days from 1 March 2027, a site at 46.5° N 8° E, and the first day.
+func skylineQuerySetup(t *testing.T) (e *MoonEphemeris, o Observer, from, to time.Time) {
+	t.Helper()
+	from = time.Date(2027, 3, 1, 0, 0, 0, 0, time.UTC)
+	e, err := NewMoonEphemeris(from, from.AddDate(0, 0, 3))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return e, Observer{Latitude: 46.5, Longitude: 8.0}, from, from.AddDate(0, 0, 1)
+}
+
 // TestSkylineEmpty: NewSkyline and every skyline query refuse a skyline
 // without points with an *InputError that says what the 0 counts
 // ("astro: skyline points 0: …", not "skyline 0", which reads as an
 // azimuth).
 func TestSkylineEmpty(t *testing.T) {
-	from := time.Date(2027, 3, 1, 0, 0, 0, 0, time.UTC)
-	e, err := NewMoonEphemeris(from, from.AddDate(0, 0, 3))
-	if err != nil {
-		t.Fatal(err)
-	}
-	o := Observer{Latitude: 46.5, Longitude: 8.0}
-	to := from.AddDate(0, 0, 1)
+	e, o, from, to := skylineQuerySetup(t)
 	_, errSun := e.sun.SunSkylineCrossings(o, nil, from, to)
 	_, errMoon := e.MoonSkylineCrossings(o, nil, from, to)
 	_, errDark := e.DarkSkylineWindows(context.Background(), o, nil, time.UTC, from, from, 0)
@@ -203,13 +209,7 @@ func TestSkylineEmpty(t *testing.T) {
 // points (unsorted, 360 beside 0, a direction twice) or compare with a NaN
 // and find nothing.
 func TestSkylineUnchecked(t *testing.T) {
-	from := time.Date(2027, 3, 1, 0, 0, 0, 0, time.UTC)
-	e, err := NewMoonEphemeris(from, from.AddDate(0, 0, 3))
-	if err != nil {
-		t.Fatal(err)
-	}
-	o := Observer{Latitude: 46.5, Longitude: 8.0}
-	to := from.AddDate(0, 0, 1)
+	e, o, from, to := skylineQuerySetup(t)
 	ctx := context.Background()
 	queries := map[string]func(Skyline) error{
 		"SunSkylineCrossings":  func(s Skyline) error { _, err := e.Sun().SunSkylineCrossings(o, s, from, to); return err },

@@ -230,14 +230,7 @@ func TestEventsCSVLocalTimes(t *testing.T) {
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, errOut)
 	}
-	rows, err := csv.NewReader(strings.NewReader(out)).ReadAll()
-	if err != nil {
-		t.Fatal(err)
-	}
-	col := map[string]int{}
-	for i, h := range rows[0] {
-		col[h] = i
-	}
+	rows, col := csvByHeader(t, out)
 	for _, h := range []string{"start_local", "end_local", "part", "day_length_s", "day_change_s", "illuminated", "altitude_deg", "lamp_s"} {
 		if _, ok := col[h]; !ok {
 			t.Fatalf("no column %q in %v", h, rows[0])
@@ -260,7 +253,7 @@ func TestEventsCSVLocalTimes(t *testing.T) {
 		t.Errorf("details seen: %v", seen)
 	}
 	code, out, _ = runCLI(t, "events", "--feed", "fernhollow-lamps", "--from", "2027-01-10", "--to", "2027-01-10", "--format", "csv")
-	rows, err = csv.NewReader(strings.NewReader(out)).ReadAll()
+	rows, err := csv.NewReader(strings.NewReader(out)).ReadAll()
 	if code != 0 || err != nil || len(rows) != 4 {
 		t.Fatalf("feed CSV (exit %d, %v): %s", code, err, out)
 	}
@@ -624,14 +617,7 @@ func TestEventsCSVLocalOffsetSeconds(t *testing.T) {
 		if code != 0 {
 			t.Fatalf("%s: exit %d: %s", c.tz, code, errOut)
 		}
-		rows, err := csv.NewReader(strings.NewReader(out)).ReadAll()
-		if err != nil {
-			t.Fatal(err)
-		}
-		col := map[string]int{}
-		for i, h := range rows[0] {
-			col[h] = i
-		}
+		rows, col := csvByHeader(t, out)
 		if len(rows) != 1+len(c.offsets) {
 			t.Fatalf("%s: %d rows, want %d: %s", c.tz, len(rows)-1, len(c.offsets), out)
 		}
@@ -657,4 +643,22 @@ func TestEventsCSVLocalOffsetSeconds(t *testing.T) {
 			}
 		}
 	}
+}
+
+// csvByHeader reads a CSV listing and the index of each column by its
+// header's name, as the README tells scripts to read it.
+func csvByHeader(t *testing.T, out string) ([][]string, map[string]int) {
+	t.Helper()
+	rows, err := csv.NewReader(strings.NewReader(out)).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(rows) == 0 {
+		t.Fatal("no CSV header")
+	}
+	col := map[string]int{}
+	for i, h := range rows[0] {
+		col[h] = i
+	}
+	return rows, col
 }

@@ -41,8 +41,9 @@ const (
 type Observer struct {
 	Latitude, Longitude float64 // degrees, geodetic (WGS 84), north and east positive
 	// Elevation is the height above sea level in metres. It lowers the
-	// rise/set altitude by the dip of the horizon, 1.76′·√h (common
-	// practice), and enters the parallax.
+	// rise/set altitude by the dip of the horizon, 1.76′·√h (N.
+	// Bowditch, The American Practical Navigator, dip of the sea horizon),
+	// and enters the parallax.
 	Elevation float64
 	// Horizon is the apparent altitude of the visible skyline in degrees
 	// (hills, buildings), as measured from the site; 0 means a sea or flat
@@ -160,10 +161,10 @@ func (o Observer) RiseSetAltitude() float64 {
 func (o Observer) RaisedHorizon() bool { return o.Horizon > 0 }
 
 // Dip returns the dip of the horizon in degrees for an eye elevation
-// metres above a flat (sea) horizon: 1.76′·√elevation (common practice;
-// refraction over the sea included), 0 at or below sea level: 59.7′ at
-// 1150 m, 94.0′ (1.57°) at 2850 m; it grows without a bound, as √elevation.
-// NaN gives NaN.
+// metres above a flat (sea) horizon: 1.76′·√elevation (N. Bowditch, The
+// American Practical Navigator, dip of the sea horizon; refraction over the
+// sea included), 0 at or below sea level: 59.7′ at 1150 m, 94.0′ (1.57°)
+// at 2850 m; it grows without a bound, as √elevation. NaN gives NaN.
 func Dip(elevation float64) float64 {
 	if elevation <= 0 {
 		return 0

@@ -9,7 +9,7 @@ import (
 // A horizon the site gives as 0 (Horizon 0 with LevelHorizon) is a level horizon: the
 // refraction at 0° (Bennett, Meeus eq. 16.4: 34.48′) and no dip, while an
 // unset one is the flat horizon lowered by the dip, 1.76′·√1150 = 59.7′
-// (common practice). At 31.27° S 149.07° E, 1150 m, on 1 March 2027 (UTC
+// (N. Bowditch, The American Practical Navigator, dip of the sea horizon). At 31.27° S 149.07° E, 1150 m, on 1 March 2027 (UTC
 // 28 February), PyEphem 4.1.4 (pressure 0; the Sun's centre at −50.48′
 // and −1.828°, the Moon's upper limb at −34.48′ and −1.561°) gives the
 // level horizon's sunrise at 19:53:04.4 and moonrise at 13:03:49.2, the

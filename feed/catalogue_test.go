@@ -630,7 +630,7 @@ func TestSiteAtmosphere(t *testing.T) {
 		t.Errorf("cold sunrise %v not before standard %v", b[0].Start, a[0].Start)
 	}
 	f := &config.Feed{ID: "x", Kinds: specs}
-	// the dip of 420 m, 1.76′·√420 = 36′ (common practice)
+	// the dip of 420 m, 1.76′·√420 = 36′ (N. Bowditch, The American Practical Navigator, dip of the sea horizon)
 	if da, db := CalendarDescription(std, f), CalendarDescription(&cold, f); !strings.Contains(db, "Sunrise: the Sun's upper limb appears over a horizon 36′ below eye level, as seen from 420 m (refraction for 964 hPa and −20 °C).") ||
 		!strings.Contains(da, "Sunrise: the Sun's upper limb appears over a horizon 36′ below eye level, as seen from 420 m (standard refraction).") {
 		t.Errorf("calendar descriptions:\n%s\n%s", da, db)

@@ -626,7 +626,7 @@ func TestRiseSetMeaningFollowsSite(t *testing.T) {
 		s.Elevation = 0
 		return s
 	}
-	plateau := func() *config.Site { // Owlgate, 1150 m: the dip 1.76′·√1150 = 59.7′ (common practice)
+	plateau := func() *config.Site { // Owlgate, 1150 m: the dip 1.76′·√1150 = 59.7′ (N. Bowditch, The American Practical Navigator, dip of the sea horizon)
 		s := site(t, "plateau", -31.27, 149.07, "Australia/Sydney")
 		s.Elevation = 1150
 		return s

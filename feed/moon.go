@@ -373,16 +373,23 @@ func clocksDuring(start, end time.Time, loc *time.Location) string {
 	if _, to := end.In(loc).Zone(); from == to {
 		return "" // nearly every span: the walk of the changes is not needed
 	}
+	return spanClockChanges(start, end, loc)
+}
+
+// spanClockChanges is clocksDuring of a span whose two ends' offsets differ:
+// the sentence of each change of the clocks between start and end.
+func spanClockChanges(start, end time.Time, loc *time.Location) string {
 	var b strings.Builder
 	for ch := range OffsetChanges(loc, start, end) {
-		before, _ := ch.At.Add(-time.Second).In(loc).Zone()
-		after, _ := ch.At.In(loc).Zone()
+		prev, next := ch.At.Add(-time.Second).In(loc), ch.At.In(loc)
+		before, _ := prev.Zone()
+		after, _ := next.Zone()
 		was := ch.At.In(time.FixedZone(ZoneLabel(before), ch.Before))
 		now := ch.At.In(time.FixedZone(ZoneLabel(after), ch.After))
 		// summer time is the clock's after a change forward, before one back
-		by, forward, summer := time.Duration(ch.After-ch.Before)*time.Second, ch.After > ch.Before, ch.At.In(loc).IsDST()
+		by, forward, summer := time.Duration(ch.After-ch.Before)*time.Second, ch.After > ch.Before, next.IsDST()
 		if !forward {
-			by, summer = -by, ch.At.Add(-time.Second).In(loc).IsDST()
+			by, summer = -by, prev.IsDST()
 		}
 		fmt.Fprintf(&b, " The clocks %s during it: %s %s becomes %s %s.", ClocksGo(forward, summer, by),
 			ChangeClock(was), ZoneLabel(before), ChangeClock(now), ZoneLabel(after))
@@ -392,11 +399,12 @@ func clocksDuring(start, end time.Time, loc *time.Location) string {
 
 // clocksDuring is clocksDuring of the span from start to end as shown (to
 // the second), its two ends' offsets looked up in z: nearly every span has
-// the same at both, and then nothing more is looked up.
+// the same at both, and then nothing more is looked up (nor looked up again
+// in the zone when they differ).
 func (z *zoneCache) clocksDuring(start, end time.Time) string {
 	_, from := z.at(UnixSecond(start))
 	if _, to := z.at(UnixSecond(end)); from == to {
 		return ""
 	}
-	return clocksDuring(ToSecond(start), ToSecond(end), z.loc)
+	return spanClockChanges(ToSecond(start), ToSecond(end), z.loc)
 }

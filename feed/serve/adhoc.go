@@ -94,6 +94,10 @@ type AdhocQuery struct {
 	placed bool
 }
 
+// horizonGiven reports whether the query names one altitude of the
+// horizon: one other than 0, or 0 written (HorizonSet), a level horizon.
+func (q AdhocQuery) horizonGiven() bool { return q.Horizon != 0 || q.HorizonSet }
+
 // String returns the canonical query string, the cache key.
 func (q AdhocQuery) String() string {
 	return q.place() + "&" + ParamStart + "=" + q.Start.Format(time.DateOnly) +
@@ -115,7 +119,7 @@ func (q AdhocQuery) placeWithZone(tz string) string {
 	if q.Name != "" {
 		b.WriteString("&" + ParamName + "=" + url.QueryEscape(q.Name))
 	}
-	if q.Horizon != 0 || q.HorizonSet {
+	if q.horizonGiven() {
 		b.WriteString("&" + ParamHorizon + "=" + strconv.FormatFloat(q.Horizon, 'f', -1, 64))
 	}
 	if len(q.Skyline) > 0 {

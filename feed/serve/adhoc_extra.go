@@ -185,7 +185,7 @@ func (q AdhocQuery) horizonWords() string {
 		return fmt.Sprintf(", skyline of %d points", len(q.Skyline))
 	case len(q.Skyline) > 0:
 		return ", skyline " + strings.ReplaceAll(q.skylineText(), ",", ", ") + " (azimuth:altitude)"
-	case q.Horizon != 0 || q.HorizonSet:
+	case q.horizonGiven():
 		return ", horizon " + strconv.FormatFloat(q.Horizon, 'f', -1, 64) + "°"
 	}
 	return ""

@@ -98,7 +98,7 @@ func (s *Server) builderFill(raw, today string) (builderFill, []kindGroup) {
 		case err != nil:
 		case len(q.Skyline) > 0:
 			f.Horizon = q.skylineText()
-		case q.Horizon != 0 || q.HorizonSet: // 0 written: a level horizon, no dip
+		case q.horizonGiven(): // 0 written: a level horizon, no dip
 			f.Horizon = strconv.FormatFloat(q.Horizon, 'f', -1, 64)
 		}
 		return err
@@ -348,7 +348,7 @@ func (q AdhocQuery) builderQuery(start string) string {
 	switch {
 	case len(q.Skyline) > 0:
 		v.Set(ParamHorizon, q.skylineText())
-	case q.Horizon != 0 || q.HorizonSet:
+	case q.horizonGiven():
 		v.Set(ParamHorizon, strconv.FormatFloat(q.Horizon, 'f', -1, 64))
 	}
 	v.Set(ParamKinds, strings.Join(q.Kinds, ","))

@@ -133,8 +133,10 @@ func (w *Writer) holdLive(ctx context.Context) (*liveLock, error) {
 	for {
 		f, err := openLock(path)
 		if err != nil {
-			if _, serr := os.Lstat(path); errors.Is(err, fs.ErrPermission) && errors.Is(serr, fs.ErrNotExist) {
-				return nil, nil
+			if errors.Is(err, fs.ErrPermission) {
+				if _, serr := os.Lstat(path); errors.Is(serr, fs.ErrNotExist) {
+					return nil, nil
+				}
 			}
 			return nil, err
 		}

@@ -263,8 +263,14 @@ func TestAdhocNormalisedAndCached(t *testing.T) {
 	}
 }
 
+// testLimits are the ad-hoc limits the tests that read queries with
+// parseAdhoc share: 400 days at most, 365 by default, years 1900..2100.
+func testLimits() *adhocLimits {
+	return &adhocLimits{parseKind: parseKind, maxDays: 400, defaultDays: 365, minYear: 1900, maxYear: 2100, zones: &zoneCache{}}
+}
+
 func TestAdhocIDStable(t *testing.T) {
-	lim := &adhocLimits{parseKind: parseKind, maxDays: 400, defaultDays: 365, minYear: 1900, maxYear: 2100, zones: &zoneCache{}}
+	lim := testLimits()
 	a, err := parseAdhoc("lat=47.5&lon=13&tz=Europe/Vienna&kinds=sunrise", today, lim)
 	if err != nil {
 		t.Fatal(err)

@@ -9,7 +9,7 @@ import (
 // and calendar): without horizon the flat horizon lowered by the dip of
 // elev applies; a skyline is no single altitude.
 func TestAdhocHorizonZeroKept(t *testing.T) {
-	lim := &adhocLimits{parseKind: parseKind, maxDays: 400, defaultDays: 365, minYear: 1900, maxYear: 2100, zones: &zoneCache{}}
+	lim := testLimits()
 	const place = "lat=-31.27&lon=149.07&elev=1150&tz=Australia/Sydney&kinds=sunrise"
 	for _, c := range []struct {
 		extra, words string

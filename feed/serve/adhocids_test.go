@@ -12,7 +12,7 @@ import "testing"
 // query whose id changed on purpose: a level horizon, another feed than
 // the flat one it was (TestAdhocHorizonZeroKept).
 func TestAdhocIDsKeptFromCad5212(t *testing.T) {
-	lim := &adhocLimits{parseKind: parseKind, maxDays: 400, defaultDays: 365, minYear: 1900, maxYear: 2100, zones: &zoneCache{}}
+	lim := testLimits()
 	for _, tc := range []struct{ query, id string }{
 		{"lat=47.5&lon=13.05&tz=Europe/Vienna&kinds=sunrise,sunset,civil-dawn,civil-dusk", "at-c06c2c96bf1e"},
 		{"lat=47.5&lon=13.05&tz=Europe/Vienna&kinds=civil-dusk,sunset,civil-dawn,sunrise", "at-c06c2c96bf1e"},

@@ -604,7 +604,7 @@ func TestLinksEscapeZone(t *testing.T) {
 	if m, want := body(t, r), `parameter tz="Etc/GMT 12": unknown time zone (a "+" in a link is read as a space: for Etc/GMT+12 write tz=Etc/GMT%2B12)`; r.StatusCode != 400 || !strings.Contains(m, want) {
 		t.Errorf("tz=Etc/GMT+12: %d %q, want 400 saying %q", r.StatusCode, m, want)
 	}
-	lim := &adhocLimits{parseKind: parseKind, maxDays: 400, defaultDays: 365, minYear: 1900, maxYear: 2100, zones: &zoneCache{}}
+	lim := testLimits()
 	q, err := parseAdhoc("lat=0&lon=-177.5&kinds=sunrise&tz=Etc/GMT%2B12", today, lim)
 	if err != nil {
 		t.Fatal(err)

@@ -35,7 +35,7 @@ func siteKeyHint(t *testing.T, key, value string) string {
 // gets the hint the configuration gives its site's key for the same value,
 // in the same words.
 func TestAdhocPlaceHintsAsConfiguration(t *testing.T) {
-	lim := &adhocLimits{parseKind: parseKind, maxDays: 400, defaultDays: 365, minYear: 1900, maxYear: 2100, zones: &zoneCache{}}
+	lim := testLimits()
 	for _, tc := range []struct{ param, key, value string }{
 		{ParamLatitude, "latitude", "33°27′S"},
 		{ParamLatitude, "latitude", "95"},

@@ -113,7 +113,7 @@ func TestAdhocExtras(t *testing.T) {
 // in the cache key and the feed's id, so that two spellings of one skyline
 // share a feed, and a skyline is never confused with a flat horizon.
 func TestAdhocSkyline(t *testing.T) {
-	lim := &adhocLimits{parseKind: parseKind, maxDays: 400, defaultDays: 365, minYear: 1900, maxYear: 2100, zones: &zoneCache{}}
+	lim := testLimits()
 	ask := func(horizon string) AdhocQuery {
 		t.Helper()
 		q, err := parseAdhoc("lat=47.05&lon=11.2&tz=Europe/Vienna&kinds=sunrise&horizon="+url.QueryEscape(horizon), today, lim)

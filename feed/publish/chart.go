@@ -425,6 +425,7 @@ func (g geometry) draw(id, class string, c *SiteChart, sh shared) drawing {
 // so that it does not read as a second start beside theirs.
 func heldText(held []HeldDates, first, last, today time.Time) string {
 	var b strings.Builder
+	todayIn := !today.IsZero() && today.After(first) && !today.After(last) // the chart shades the weeks before it
 	for _, h := range held {
 		if len(h.What) == 0 {
 			continue
@@ -432,7 +433,7 @@ func heldText(held []HeldDates, first, last, today time.Time) string {
 		what := feed.AndList(h.What)
 		from, to := stretchDates(h.First, h.Last, first, last)
 		shaded := ""
-		if !today.IsZero() && today.After(first) && !today.After(last) && h.First.Before(today) {
+		if todayIn && h.First.Before(today) {
 			shaded = ", in the shaded weeks before today"
 		}
 		b.WriteString(" ")

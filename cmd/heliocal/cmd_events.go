@@ -246,11 +246,7 @@ func feedPlace(g *globals, o *eventsOptions) (*config.Site, error) {
 	}
 	f, ok := cfg.Feed(o.feed)
 	if !ok {
-		ids, names := make([]string, len(cfg.Feeds)), make([]string, len(cfg.Feeds))
-		for i, f := range cfg.Feeds {
-			ids[i], names[i] = f.ID, f.Title
-		}
-		return nil, noSuchID("--feed", "feed", o.feed, ids, names, "title")
+		return nil, noSuchFeed(cfg, o.feed)
 	}
 	for _, k := range f.Kinds {
 		if k.Kind.Name != "daily-summary" { // a feed entry made of other kinds, not an event
@@ -313,6 +309,16 @@ func eventsStopped(ctx context.Context, err error) error {
 		return err
 	}
 	return fmt.Errorf("events: stopped before the listing was complete: %w; what was written to standard output is cut short", ctx.Err())
+}
+
+// noSuchFeed refuses --feed v, the id of no configured feed (noSuchID: by
+// its title, the feed it names).
+func noSuchFeed(cfg *config.Config, v string) error {
+	ids, titles := make([]string, len(cfg.Feeds)), make([]string, len(cfg.Feeds))
+	for i, f := range cfg.Feeds {
+		ids[i], titles[i] = f.ID, f.Title
+	}
+	return noSuchID("--feed", "feed", v, ids, titles, "title")
 }
 
 func runEvents(ctx context.Context, g *globals, o *eventsOptions) error {

@@ -44,15 +44,13 @@ func runEventsFeed(ctx context.Context, g *globals, o *eventsOptions) error {
 		return err
 	}
 	var f *config.Feed
-	ids, names := make([]string, len(cfg.Feeds)), make([]string, len(cfg.Feeds))
 	for i := range cfg.Feeds {
-		ids[i], names[i] = cfg.Feeds[i].ID, cfg.Feeds[i].Title
 		if cfg.Feeds[i].ID == o.feed {
 			f = &cfg.Feeds[i]
 		}
 	}
 	if f == nil {
-		return noSuchID("--feed", "feed", o.feed, ids, names, "title")
+		return noSuchFeed(cfg, o.feed)
 	}
 	l := newLayout(cfg.Service.BaseURL)
 	cat, err := feed.NewCatalogue(cfg, feed.Options{Now: o.now, FeedURL: l.feedURL, PageURL: l.base, Refresh: refreshInterval(cfg, o.now)})

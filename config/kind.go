@@ -213,6 +213,11 @@ var kindWords = map[string][]string{
 	"darkness":              {"dark-window"},
 }
 
+// hyphenWords writes the words of a text with hyphens between them, as
+// kindWords's keys are written ("civil twilight", "civil_twilight":
+// "civil-twilight").
+var hyphenWords = strings.NewReplacer(" ", "-", "_", "-")
+
 // kindWordHint is the hint naming the kinds a word means: the one it likely
 // means (`did you mean "solar-noon"?`), or the family's (`its kinds are
 // "civil-dawn" and "civil-dusk"`).
@@ -261,7 +266,7 @@ func ParseKind(s string) (Kind, error) {
 			msg = "is empty: name a kind"
 		} else if kinds := severalKinds(text); kinds != nil {
 			msg, hint = fmt.Sprintf("%d kinds in one entry", len(kinds)), "write each as an entry of its own: "+strings.Join(kinds, ", ")
-		} else if kinds := kindWords[strings.NewReplacer(" ", "-", "_", "-").Replace(text)]; kinds != nil {
+		} else if kinds := kindWords[hyphenWords.Replace(text)]; kinds != nil {
 			hint = kindWordHint(kinds)
 		} else if near := nearKind(text, KindNames); near != "" {
 			hint = didYouMean(near)

@@ -1008,7 +1008,7 @@ func (ks *KindSpec) validateOptions(ps *problems, p string) {
 	}
 	if onlyLighting("natural", ks.Natural) && ks.Natural != NaturalSunriseSunset && ks.Natural != NaturalCivil {
 		hint := nearValue(ks.Natural, []string{NaturalSunriseSunset, NaturalCivil}, "what counts as natural light: the Sun up, or civil twilight too")
-		if w := strings.NewReplacer(" ", "-", "_", "-").Replace(strings.ToLower(strings.TrimSpace(ks.Natural))); w == "civil-twilight" || w == "twilight" {
+		if w := hyphenWords.Replace(strings.ToLower(strings.TrimSpace(ks.Natural))); w == "civil-twilight" || w == "twilight" {
 			hint = didYouMean(NaturalCivil) // civil twilight counted as light
 		}
 		ps.add(p+".natural", ks.Natural, "must be sunrise-sunset or civil", hint)

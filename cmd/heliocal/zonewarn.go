@@ -2,9 +2,11 @@ package main
 
 import (
 	"fmt"
+	"slices"
 	"strings"
 	"time"
 
+	"heliocal/astro"
 	"heliocal/config"
 	"heliocal/feed"
 )
@@ -63,22 +65,22 @@ func fixedZone(name string) bool {
 // differ, and the first instant of that difference; zero when they never
 // differ. Lord Howe Island's clocks go back an hour before Sydney's on
 // 4 April 2027, then are 30 min ahead of them until October: the warning
-// says the months, not the hour. The offsets change only at the zones'
-// transitions, so the periods of both are walked (ZoneBounds); a period
-// with no end, or one Go gives without a change past the zone data's last
-// transition (see astro.ZoneChanges), moves on by a day.
+// says the months, not the hour. The offsets change only where either
+// zone's do (astro.ZoneChanges, past the zone data's last transition too).
 func offsetsDiffer(a, b *time.Location, from, to time.Time) (time.Time, time.Duration) {
 	held := map[time.Duration]time.Duration{} // how long each difference holds
 	first := map[time.Duration]time.Time{}
-	for t := from; t.Before(to); {
-		next := t.Add(24 * time.Hour)
-		for _, loc := range []*time.Location{a, b} {
-			if _, end := t.In(loc).ZoneBounds(); end.After(t) && end.Before(next) {
-				next = end
-			}
+	var bounds []time.Time
+	for _, loc := range []*time.Location{a, b} {
+		for at := range astro.ZoneChanges(loc, from, to) {
+			bounds = append(bounds, at)
 		}
-		if next.After(to) {
-			next = to
+	}
+	slices.SortFunc(bounds, time.Time.Compare) // each before to
+	t := from
+	for _, next := range append(bounds, to) {
+		if !next.After(t) { // a change of both zones at once
+			continue
 		}
 		_, oa := t.In(a).Zone()
 		_, ob := t.In(b).Zone()

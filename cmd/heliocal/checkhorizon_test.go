@@ -8,7 +8,7 @@ import (
 
 // check says which horizon rise and set are taken over: a site without a
 // horizon at 1150 m has the flat one lowered by the dip, 1.76′·√1150 =
-// 59.7′ (common practice), a horizon written 0 is level, without it; at sea
+// 59.7′ (N. Bowditch, The American Practical Navigator, dip of the sea horizon), a horizon written 0 is level, without it; at sea
 // level there is no dip to name. The JSON says it in horizon_set and
 // dip_deg. And events --horizon 0 is that level horizon: at 31.27° S
 // 149.07° E, 1150 m, PyEphem 4.1.4 (pressure 0, the Sun's centre at
